@@ -1,0 +1,5 @@
+import sys
+
+from porter.cli import main
+
+sys.exit(main())

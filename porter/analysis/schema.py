@@ -1,0 +1,58 @@
+"""Input schemas from `--data DIR`: column types read without loading data."""
+
+from __future__ import annotations
+
+from pathlib import Path
+from typing import Any
+
+import polars as pl
+
+from porter.rules.io_options import scan_kwargs
+
+
+def dtype_name(dtype: pl.DataType) -> str | None:
+    """porter's name for a Polars dtype (the categories rules reason about)."""
+    if dtype.is_integer():
+        return "int"
+    if dtype.is_float():
+        return "float"
+    if dtype == pl.String:
+        return "str"
+    if dtype == pl.Boolean:
+        return "bool"
+    if dtype == pl.Date:
+        return "date"
+    if isinstance(dtype, pl.Datetime):
+        return "datetime"
+    if isinstance(dtype, (pl.Categorical, pl.Enum)):
+        return "category"
+    return None
+
+
+class SchemaReader:
+    """Looks input files up under the data folder; remembers what it read."""
+
+    def __init__(self, data_dir: str | Path) -> None:
+        self.root = Path(data_dir)
+        self.cache: dict[tuple[str, str, str], dict[str, str] | None] = {}
+
+    def __call__(self, reader: str, path: str, options: dict[str, Any]) -> dict[str, str] | None:
+        key = (reader, path, repr(sorted(options.items())))
+        if key not in self.cache:
+            self.cache[key] = self._read(reader, path, options)
+        return self.cache[key]
+
+    def _read(self, reader: str, path: str, options: dict[str, Any]) -> dict[str, str] | None:
+        file = self.root / path
+        if not file.is_file():
+            return None
+        try:
+            if reader == "csv":
+                schema = pl.scan_csv(file, **scan_kwargs(options)).collect_schema()
+            elif reader == "parquet":
+                schema = pl.scan_parquet(file).collect_schema()
+            else:
+                return None
+        except (pl.exceptions.PolarsError, OSError, ValueError):
+            return None
+        return {name: dtype_name(dtype) or "other" for name, dtype in schema.items()}

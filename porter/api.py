@@ -1,0 +1,72 @@
+"""Converting one script: parse → analyse → translate → emit. The CLI and batch call this."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import libcst as cst
+
+from porter.mapping import MappingTable, load_table
+from porter.model import ConversionError, FileResult, Options, Site, SiteDraft
+from porter.rules import registry
+from porter.translate.engine import translate_module
+from porter.translate.evaluate import Services
+
+
+def parse(text: str, path: str | None = None) -> cst.Module:
+    try:
+        return cst.parse_module(text)
+    except cst.ParserSyntaxError as exc:
+        message = exc.message if hasattr(exc, "message") else str(exc)
+        raise ConversionError(f"syntax error: {message}", path, exc.raw_line, exc.raw_column + 1) from None
+
+
+def convert_source(text: str, *, path: str | None = None, options: Options | None = None,
+                   table: MappingTable | None = None, output: str | None = None) -> FileResult:
+    """Convert the text of one pandas script; raises ConversionError for bad input."""
+    options = options or Options()
+    module = parse(text, path)
+    schema_lookup = None
+    if options.data_dir is not None:
+        from porter.analysis.schema import SchemaReader
+        schema_lookup = SchemaReader(options.data_dir)
+    services = Services(
+        table=table or load_table(),
+        registry=registry(),
+        code_for=module.code_for_node,
+        position=lambda node: (0, 0),
+        min_confidence=options.min_confidence,
+        schema_lookup=schema_lookup,
+    )
+    translation = translate_module(module, services)
+    converted = translation.module.code
+    sites = tuple(_site(d) for d in translation.sites)
+    return FileResult(
+        source=path or "<stdin>",
+        output=output,
+        original_text=text,
+        converted_text=converted,
+        sites=sites,
+        status="converted" if converted != text else "unchanged",
+    )
+
+
+def convert_file(path: str | Path, *, options: Options | None = None,
+                 output: str | None = None) -> FileResult:
+    path = Path(path)
+    if not path.exists():
+        raise ConversionError("no such file", str(path))
+    if path.is_dir():
+        raise ConversionError("is a folder, not a Python script", str(path))
+    try:
+        text = path.read_text(encoding="utf-8")
+    except UnicodeDecodeError as exc:
+        raise ConversionError(f"not UTF-8 text ({exc.reason} at byte {exc.start})", str(path)) from None
+    except OSError as exc:
+        raise ConversionError(exc.strerror or str(exc), str(path)) from None
+    return convert_source(text, path=str(path), options=options, output=output)
+
+
+def _site(draft: SiteDraft) -> Site:
+    return Site(draft.line, draft.end_line, draft.key, draft.rule, draft.status,
+                draft.confidence, draft.message)

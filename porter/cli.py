@@ -1,0 +1,131 @@
+"""Command line: argument parsing only; every command calls into the library."""
+
+from __future__ import annotations
+
+import argparse
+import difflib
+import json
+from pathlib import Path
+import sys
+
+from porter import __version__
+from porter.api import convert_file
+from porter.mapping import MappingFileError
+from porter.model import ConversionError, FileResult, Options, summarize
+
+EXIT_OK, EXIT_TODO, EXIT_USAGE = 0, 1, 2
+
+
+class _Parser(argparse.ArgumentParser):
+    def error(self, message: str) -> None:  # argparse exits with 2 too; keep the message short
+        self.print_usage(sys.stderr)
+        self.exit(EXIT_USAGE, f"porter: error: {message}\n")
+
+
+def build_parser() -> argparse.ArgumentParser:
+    parser = _Parser(prog="porter", description=(
+        "Port pandas scripts to the Polars lazy API, marking what cannot be ported with "
+        "TODO(porter) comments."))
+    parser.add_argument("--version", action="version", version=f"porter {__version__}")
+    commands = parser.add_subparsers(dest="command", required=True, parser_class=_Parser)
+
+    convert = commands.add_parser("convert", help="convert one pandas script",
+                                  description="Convert one pandas script to Polars lazy code.")
+    convert.add_argument("input", help="the pandas script")
+    convert.add_argument("-o", "--output", default="-",
+                         help="where to write the converted script (default: stdout)")
+    convert.add_argument("--diff", action="store_true", help="print a unified diff, write nothing")
+    convert.add_argument("--report", metavar="FILE.json", help="write the JSON report here")
+    convert.add_argument("--min-confidence", type=_confidence, default=0.0, metavar="X",
+                         help="rewrites below this confidence become TODOs carrying the suggestion")
+    convert.add_argument("--data", metavar="DIR",
+                         help="folder the script runs in: input schemas are read from it (no data loaded)")
+    convert.add_argument("--fail-on-todo", action="store_true", help="exit 1 when TODOs remain")
+    convert.add_argument("-q", "--quiet", action="store_true", help="no summary on stderr")
+    return parser
+
+
+def _confidence(text: str) -> float:
+    try:
+        value = float(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"not a number: {text!r}") from None
+    if not 0.0 <= value <= 1.0:
+        raise argparse.ArgumentTypeError("must be between 0 and 1")
+    return value
+
+
+def main(argv: list[str] | None = None) -> int:
+    args = build_parser().parse_args(argv)
+    try:
+        if args.command == "convert":
+            return convert(args)
+    except ConversionError as exc:
+        print(f"porter: {exc}", file=sys.stderr)
+        return EXIT_USAGE
+    except MappingFileError as exc:
+        print(f"porter: mapping table: {exc}", file=sys.stderr)
+        return EXIT_USAGE
+    return EXIT_USAGE
+
+
+def convert(args: argparse.Namespace) -> int:
+    if args.data is not None and not Path(args.data).is_dir():
+        raise ConversionError("no such folder", args.data)
+    options = Options(min_confidence=args.min_confidence, data_dir=args.data)
+    output = None if args.diff or args.output == "-" else args.output
+    result = convert_file(args.input, options=options, output=output)
+    if args.diff:
+        sys.stdout.writelines(difflib.unified_diff(
+            result.original_text.splitlines(keepends=True),
+            result.converted_text.splitlines(keepends=True),
+            fromfile=args.input, tofile=f"{args.input} (polars)"))
+    elif output is None:
+        sys.stdout.write(result.converted_text)
+    else:
+        _write(Path(output), result.converted_text)
+    if args.report:
+        _write(Path(args.report), json.dumps(report_json([result]), indent=2) + "\n")
+    if not args.quiet:
+        print(summary_text([result]), file=sys.stderr)
+    return EXIT_TODO if args.fail_on_todo and result.todos else EXIT_OK
+
+
+def _write(path: Path, text: str) -> None:
+    """Write completely or not at all: a temporary file renamed into place."""
+    if path.parent and not path.parent.exists():
+        raise ConversionError("the output folder does not exist", str(path.parent))
+    temporary = path.with_name(f".{path.name}.porter-tmp")
+    temporary.write_text(text, encoding="utf-8")
+    temporary.replace(path)
+
+
+def report_json(results: list[FileResult]) -> dict[str, object]:
+    sites = [s for r in results for s in r.sites]
+    total = summarize(sites)
+    total["files"] = len(results)
+    return {"porter_version": __version__, "files": [r.to_json() for r in results], "summary": total}
+
+
+def summary_text(results: list[FileResult]) -> str:
+    sites = [s for r in results for s in r.sites]
+    summary = summarize(sites)
+    lines = [f"porter: {summary['converted']} sites converted, {summary['handover']} handed over "
+             f"to pandas, {summary['todo']} TODOs"]
+    todo_keys = summary["todo_by_key"]
+    assert isinstance(todo_keys, dict)
+    for key, count in list(todo_keys.items())[:8]:
+        lines.append(f"  TODO {count:>3} × {key}")
+    if len(todo_keys) > 8:
+        lines.append(f"  … and {len(todo_keys) - 8} more keys (see --report)")
+    lowest = [s for s in sites if s.status == "converted"]
+    if lowest:
+        low = min(lowest, key=lambda s: s.confidence)
+        where = next((r.source for r in results if low in r.sites), "")
+        lines.append(f"  lowest confidence {low.confidence:.2f}: {low.key} at {where}:{low.line}"
+                     + (f" ({low.message})" if low.message else ""))
+    return "\n".join(lines)
+
+
+if __name__ == "__main__":  # pragma: no cover
+    sys.exit(main())

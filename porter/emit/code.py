@@ -1,0 +1,186 @@
+"""Builders for the Python source porter writes.
+
+Generated code is kept as small immutable `Code` values: the source text, its operator
+precedence (so composing two pieces adds parentheses only where Python needs them) and, for
+method chains, the base and the steps (so a long chain can be laid out one step per line).
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterable, Mapping
+from dataclasses import dataclass, field
+import math
+
+# Python operator precedence, lowest to highest.
+LAMBDA, TERNARY, OR, AND, NOT, COMPARE, BIT_OR, BIT_XOR, BIT_AND = 0, 1, 2, 3, 4, 5, 6, 7, 8
+SHIFT, ADD, MUL, UNARY, POWER, ATOM = 9, 10, 11, 12, 13, 15
+
+BINARY_PRECEDENCE = {
+    "|": BIT_OR, "^": BIT_XOR, "&": BIT_AND, "<<": SHIFT, ">>": SHIFT,
+    "+": ADD, "-": ADD, "*": MUL, "/": MUL, "//": MUL, "%": MUL, "@": MUL, "**": POWER,
+    "==": COMPARE, "!=": COMPARE, "<": COMPARE, "<=": COMPARE, ">": COMPARE, ">=": COMPARE,
+    "in": COMPARE, "not in": COMPARE, "is": COMPARE, "is not": COMPARE,
+    "and": AND, "or": OR,
+}
+
+
+@dataclass(frozen=True)
+class Code:
+    """A piece of Python source with its precedence; `steps` is set for method chains."""
+
+    text: str
+    prec: int = ATOM
+    base: str | None = None
+    steps: tuple[str, ...] = field(default=())
+
+    def __str__(self) -> str:
+        return self.text
+
+    def wrapped(self, min_prec: int) -> str:
+        return self.text if self.prec >= min_prec else f"({self.text})"
+
+    # -- building ---------------------------------------------------------------------------
+    def method(self, name: str, *args: object, **kwargs: object) -> Code:
+        step = f".{name}({arglist(args, kwargs)})"
+        if self.prec >= ATOM:
+            base = self.base if self.base is not None else self.text
+            steps = self.steps if self.base is not None else ()
+        else:
+            base, steps = f"({self.text})", ()
+        return Code(base + "".join(steps) + step, ATOM, base, steps + (step,))
+
+    def attr(self, name: str) -> Code:
+        return Code(f"{self.wrapped(ATOM)}.{name}")
+
+    def index(self, key: object) -> Code:
+        return Code(f"{self.wrapped(ATOM)}[{render(key)}]")
+
+
+def atom(text: str) -> Code:
+    return Code(text, ATOM)
+
+
+def lit(value: object) -> Code:
+    """A Python literal (strings, numbers, bools, None, lists/tuples/dicts of those)."""
+    return Code(literal_text(value), ATOM if not _is_negative_number(value) else UNARY)
+
+
+def _is_negative_number(value: object) -> bool:
+    return isinstance(value, (int, float)) and not isinstance(value, bool) and value < 0
+
+
+def literal_text(value: object) -> str:
+    if isinstance(value, Code):
+        return value.text
+    if isinstance(value, float):
+        if math.isnan(value):
+            return "None"  # porter keeps frames NaN-free: NaN is written as a missing value
+        if math.isinf(value):
+            return 'float("inf")' if value > 0 else 'float("-inf")'
+        return repr(value)
+    if isinstance(value, str):
+        return _string_literal(value)
+    if isinstance(value, list):
+        return "[" + ", ".join(literal_text(v) for v in value) + "]"
+    if isinstance(value, tuple):
+        inner = ", ".join(literal_text(v) for v in value)
+        return f"({inner},)" if len(value) == 1 else f"({inner})"
+    if isinstance(value, dict):
+        return "{" + ", ".join(f"{literal_text(k)}: {literal_text(v)}" for k, v in value.items()) + "}"
+    return repr(value)
+
+
+def _string_literal(value: str) -> str:
+    if '"' in value and "'" not in value:
+        return repr(value)
+    text = repr(value)
+    if text.startswith("'"):
+        inner = text[1:-1].replace("\\'", "'").replace('"', '\\"')
+        return f'"{inner}"'
+    return text
+
+
+def render(value: object) -> str:
+    """Source text of an argument: Code as is, Python values as literals."""
+    if isinstance(value, Code):
+        return value.text
+    return literal_text(value)
+
+
+def arglist(args: Iterable[object], kwargs: Mapping[str, object] | None = None) -> str:
+    parts = [render(a) for a in args]
+    parts += [f"{k}={render(v)}" for k, v in (kwargs or {}).items()]
+    return ", ".join(parts)
+
+
+def call(func: str, *args: object, **kwargs: object) -> Code:
+    return Code(f"{func}({arglist(args, kwargs)})", ATOM)
+
+
+def binop(left: Code | object, op: str, right: Code | object) -> Code:
+    left_c = left if isinstance(left, Code) else lit(left)
+    right_c = right if isinstance(right, Code) else lit(right)
+    prec = BINARY_PRECEDENCE[op]
+    if op == "**":  # right-associative
+        text = f"{left_c.wrapped(prec + 1)} ** {right_c.wrapped(prec)}"
+    elif prec == COMPARE:
+        text = f"{left_c.wrapped(prec + 1)} {op} {right_c.wrapped(prec + 1)}"
+    else:
+        text = f"{left_c.wrapped(prec)} {op} {right_c.wrapped(prec + 1)}"
+    return Code(text, prec)
+
+
+def unary(op: str, operand: Code) -> Code:
+    if op == "not":
+        return Code(f"not {operand.wrapped(NOT)}", NOT)
+    return Code(f"{op}{operand.wrapped(UNARY)}", UNARY)
+
+
+# -- Polars vocabulary ----------------------------------------------------------------------
+
+def col(name: str | Code) -> Code:
+    return call("pl.col", name)
+
+
+def pl(name: str, *args: object, **kwargs: object) -> Code:
+    return call(f"pl.{name}", *args, **kwargs)
+
+
+def when(cond: Code, then: object, otherwise: object | None = None) -> Code:
+    code = pl("when", cond).method("then", as_expr(then))
+    if otherwise is not None:
+        code = code.method("otherwise", as_expr(otherwise))
+    return code
+
+
+def as_expr(value: object) -> Code:
+    """A value used where Polars wants an expression: bare strings would be read as column
+    names, so they are wrapped in pl.lit."""
+    if isinstance(value, Code):
+        return value
+    if isinstance(value, str):
+        return pl("lit", value)
+    return lit(value)
+
+
+def names_arg(names: Iterable[str]) -> object:
+    """One column name as a string, several as a list."""
+    names = list(names)
+    return names[0] if len(names) == 1 else names
+
+
+# -- layout ---------------------------------------------------------------------------------
+
+LINE_LENGTH = 88
+
+
+def layout_chain(code: Code, indent: str, prefix: str, suffix: str = "") -> str:
+    """`prefix + code + suffix`, broken into one step per line when it does not fit."""
+    one_line = f"{prefix}{code.text}{suffix}"
+    if len(indent) + len(one_line) <= LINE_LENGTH or code.base is None or len(code.steps) < 2:
+        return one_line
+    inner = indent + "    "
+    lines = [f"{prefix}(", inner + code.base]
+    lines += [inner + step for step in code.steps]
+    lines.append(f"{indent}){suffix}")
+    return "\n".join(lines)

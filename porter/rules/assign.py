@@ -1,0 +1,285 @@
+"""Changing columns: df["c"] = ..., assign, rename, drop, astype, df.columns = [...],
+df.loc[mask, "c"] = ..., del df["c"]."""
+
+from __future__ import annotations
+
+import keyword
+
+import libcst as cst
+
+from porter.emit import code as emit
+from porter.emit.code import Code
+from porter.rules import rule
+from porter.rules.io import polars_dtype
+from porter.translate.context import (
+    PandasCall, RuleContext, Unsupported, derive, derived_column, with_column_updates,
+)
+from porter.translate.values import Column, Frame, Opaque, Scalar, Value
+
+
+def named(code: Code, name: str) -> tuple[Code | None, dict[str, Code]]:
+    """An expression written under a column name: keyword form when the name allows it."""
+    if code.text == emit.col(name).text:
+        return None, {}
+    if name.isidentifier() and not keyword.iskeyword(name):
+        return None, {name: code}
+    return code.method("alias", name), {}
+
+
+def with_columns(frame: Frame, items: list[tuple[str, Code, str | None]]) -> Frame:
+    args: list[object] = []
+    kwargs: dict[str, object] = {}
+    for name, code, _ in items:
+        positional, keywords = named(code, name)
+        if positional is not None:
+            args.append(positional)
+        kwargs.update(keywords)
+    if not args and not kwargs:
+        return frame
+    code = frame.code.method("with_columns", *args, **kwargs)
+    return with_column_updates(frame, code, {name: dtype for name, _, dtype in items})
+
+
+def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str | None]:
+    """A value assigned into a column of `frame`: an expression and its dtype."""
+    if isinstance(value, Column):
+        return ctx.bool_expr(value, frame), value.dtype
+    if isinstance(value, Opaque) and value.is_const:
+        if isinstance(value.const, (list, tuple, dict)):
+            raise Unsupported("a list assigned as a column is positional: build it as a Series")
+        kind = {bool: "bool", int: "int", float: "float", str: "str"}.get(type(value.const))
+        return emit.pl("lit", value.const), kind
+    if isinstance(value, Scalar):
+        if value.agg is not None and value.agg.frame.rows == frame.rows:
+            return value.agg.code, None
+        return emit.pl("lit", value.code), None
+    if isinstance(value, Opaque):
+        ctx.lower(f"`{value.code.text}` is taken to be a single value broadcast to every row", 0.8)
+        return emit.pl("lit", value.code), None
+    raise Unsupported("a value computed by pandas assigned as a column (index alignment)")
+
+
+@rule("frame.setitem")
+def setitem(call: PandasCall, ctx: RuleContext) -> Value:
+    """df["c"] = expr -> df = df.with_columns(c=expr).
+
+    Handles: a comparison that met a missing value is stored as False, like pandas.
+    Caveats: a Series from another frame aligns on the index in pandas: a TODO.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    key, value = call.args
+    if isinstance(key, Opaque) and isinstance(key.const, str):
+        code, dtype = value_expr(value, frame, ctx)
+        return with_columns(frame, [(key.const, code, dtype)])
+    if isinstance(key, Opaque) and not key.is_const and key.pytype == "str":
+        code, _ = value_expr(value, frame, ctx)
+        new = frame.code.method("with_columns", code.method("alias", key.code))
+        return with_column_updates(frame, new, {}) if frame.columns is None else \
+            derive(frame, new, same_rows=True, columns=None)
+    raise Unsupported("assigning to several columns or to a computed key")
+
+
+@rule("frame.assign")
+def assign(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.assign(c=expr, d=lambda d: ...) -> .with_columns(...).
+
+    Handles: pandas evaluates the keywords in order, so a keyword that uses a column made by
+    an earlier one starts a new with_columns.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    if call.args:
+        raise Unsupported("assign takes keywords only")
+    from porter.rules.elementwise import frame_lambda
+    pending: list[tuple[str, Code, str | None]] = []
+    made: set[str] = set()
+    for name, value in call.kwargs.items():
+        if isinstance(value, Opaque) and isinstance(value.node, cst.Lambda):
+            value = frame_lambda(value.node, frame, ctx)
+        if isinstance(value, Column) and value.refs & made:
+            frame = with_columns(frame, pending)
+            pending, made = [], set()
+            value = _rebase(value, frame)
+        code, dtype = value_expr(value, frame, ctx)
+        pending.append((name, code, dtype))
+        made.add(name)
+    return with_columns(frame, pending)
+
+
+def _rebase(column: Column, frame: Frame) -> Column:
+    return Column(column.code, frame=frame, name=column.name, dtype=column.dtype,
+                  null_is_false=column.null_is_false, refs=column.refs,
+                  versions=tuple((n, frame.version(n)) for n in column.refs))
+
+
+@rule("frame.rename")
+def rename(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.rename(columns={...}) -> .rename({...}, strict=False).
+
+    Handles: pandas ignores names that are not columns (strict=False does the same).
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "columns", "mapper", "axis", positional=1)
+    mapping = call.arg("columns", None, None)
+    if mapping is None:
+        axis = call.const("axis", None, 0)
+        if axis not in (1, "columns"):
+            raise Unsupported("renaming index labels")
+        mapping = call.arg("mapper", 0)
+    if not (isinstance(mapping, Opaque) and isinstance(mapping.const, dict)):
+        raise Unsupported("a rename function or a mapping built at run time")
+    names = {str(k): v for k, v in mapping.const.items()}
+    if not all(isinstance(v, str) for v in names.values()):
+        raise Unsupported("renaming to non-string names")
+    columns = frame.columns
+    if columns is not None:
+        names = {k: v for k, v in names.items() if k in columns}
+        code = frame.code.method("rename", names) if names else frame.code
+        new_columns = tuple(names.get(c, c) for c in columns)
+    else:
+        code = frame.code.method("rename", names, strict=False)
+        new_columns = None
+    if any(not isinstance(k, str) for k in mapping.const):
+        ctx.lower("a column named by a number in pandas is named by text in Polars", 0.9)
+    dtypes = tuple((names.get(k, k), v) for k, v in frame.dtypes)
+    versions = tuple((names.get(k, k), v) for k, v in frame.versions)
+    index = tuple(names.get(k, k) for k in frame.index)
+    return derive(frame, code, same_rows=True, columns=new_columns, dtypes=dtypes,
+                  versions=versions, index=index)
+
+
+@rule("frame.drop")
+def drop(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.drop(columns=[...]) / df.drop("c", axis=1) -> .drop(...)."""
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "labels", "columns", "axis", positional=1)
+    if call.has("columns"):
+        names = call.const("columns")
+    else:
+        if call.const("axis", None, 0) not in (1, "columns"):
+            raise Unsupported("dropping rows by index label")
+        names = call.const("labels", 0)
+    names = [names] if isinstance(names, str) else list(names)
+    columns = tuple(c for c in frame.columns if c not in names) if frame.columns is not None else None
+    code = frame.code.method("drop", *names)
+    return derive(frame, code, same_rows=True, columns=columns,
+                  dtypes=tuple((k, v) for k, v in frame.dtypes if k not in names))
+
+
+@rule("frame.delitem")
+def delitem(call: PandasCall, ctx: RuleContext) -> Value:
+    """del df["c"] -> df = df.drop("c")."""
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    key = call.args[0]
+    if not (isinstance(key, Opaque) and isinstance(key.const, str)):
+        raise Unsupported("deleting a computed key")
+    columns = tuple(c for c in frame.columns if c != key.const) if frame.columns is not None else None
+    return derive(frame, frame.code.method("drop", key.const), same_rows=True, columns=columns)
+
+
+@rule("frame.set_columns")
+def set_columns(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.columns = [...] -> .rename(...) pairing old names with new ones by position."""
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    value = call.args[0]
+    if not (isinstance(value, Opaque) and isinstance(value.const, list)):
+        if isinstance(value, Opaque):
+            code = frame.code.method("rename", emit.call(
+                "dict", emit.call("zip", frame.code.method("collect_schema").method("names"), value.code)))
+            ctx.lower("new names are computed at run time", 0.9)
+            return derive(frame, code, same_rows=True, columns=None, dtypes=())
+        raise Unsupported("new column names from a pandas value")
+    new = [str(v) for v in value.const]
+    if frame.columns is not None:
+        if len(new) != len(frame.columns):
+            raise Unsupported("the number of names differs from the number of columns")
+        mapping = {o: n for o, n in zip(frame.columns, new) if o != n}
+        code = frame.code.method("rename", mapping)
+    else:
+        code = frame.code.method("rename", emit.call(
+            "dict", emit.call("zip", frame.code.method("collect_schema").method("names"), new)))
+    return derive(frame, code, same_rows=True, columns=tuple(new), dtypes=())
+
+
+@rule("frame.loc_setitem")
+def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.loc[mask, "c"] = v -> .with_columns(c=pl.when(mask).then(v).otherwise(pl.col("c"))).
+
+    Handles: rows where the mask met a missing value keep their value (pandas' False); a new
+    column is missing outside the mask, as pandas makes it.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    if len(call.args) != 3:
+        raise Unsupported("loc assignment needs rows and one column")
+    rows, column, value = call.args
+    if not (isinstance(column, Opaque) and isinstance(column.const, str)):
+        raise Unsupported("loc assignment to several or computed columns")
+    name = column.const
+    code, dtype = value_expr(value, frame, ctx)
+    if isinstance(rows, Opaque) and rows.const == slice(None):
+        return with_columns(frame, [(name, code, dtype)])
+    if not isinstance(rows, Column):
+        raise Unsupported("rows chosen by index label")
+    exists = frame.columns is None or name in frame.columns
+    if frame.columns is None:
+        ctx.lower(f"column {name!r} is taken to exist already", 0.9)
+    new = emit.when(ctx.expr(rows, frame), code, emit.col(name) if exists else None)
+    return with_columns(frame, [(name, new, dtype if dtype == frame.dtype(name) else None)])
+
+
+@rule("frame.astype", "series.astype")
+def astype(call: PandasCall, ctx: RuleContext) -> Value:
+    """astype(int / float / str / bool / "category") -> cast.
+
+    Handles: bool to text writes True/False like pandas; numbers to bool count missing values
+    as True (NaN is truthy in pandas).
+    Caveats: pandas raises when casting missing values to int; Polars keeps them missing.
+    """
+    ctx.reject_unknown(call, "dtype", positional=1)
+    receiver = call.receiver
+    target = call.arg("dtype", 0)
+    if isinstance(receiver, Column):
+        code, dtype = cast_expr(receiver, target, ctx)
+        return derived_column(receiver, code, dtype=dtype)
+    assert isinstance(receiver, Frame)
+    if isinstance(target, Opaque) and isinstance(target.const, dict):
+        items = []
+        for name, kind in target.const.items():
+            column = Column(emit.col(name), frame=receiver, name=name, dtype=receiver.dtype(name))
+            code, dtype = cast_expr(column, Opaque(emit.lit(kind), const=kind), ctx)
+            items.append((name, code, dtype))
+        return with_columns(receiver, items)
+    if receiver.columns is None:
+        raise Unsupported("casting every column needs the column names (use a dict, or --data)")
+    items = []
+    for name in receiver.columns:
+        column = Column(emit.col(name), frame=receiver, name=name, dtype=receiver.dtype(name))
+        code, dtype = cast_expr(column, target, ctx)
+        items.append((name, code, dtype))
+    return with_columns(receiver, items)
+
+
+def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, str]:
+    polars, kind = polars_dtype(target)
+    code = column.code.method("fill_null", False) if column.null_is_false else column.code
+    if kind == "str" and column.dtype in ("bool", None):
+        if column.dtype is None:
+            ctx.lower("booleans become true/false in Polars, True/False in pandas", 0.9)
+        else:
+            return (emit.when(code, emit.pl("lit", "True"), emit.pl("lit", "False")), "str")
+    if kind == "bool":
+        if column.dtype == "str":
+            return emit.binop(code, "!=", "").method("fill_null", True), "bool"
+        if column.dtype in ("int", "float"):
+            return code.method("cast", emit.atom(polars)).method("fill_null", True), "bool"
+        raise Unsupported("astype(bool) depends on the column type (use --data)")
+    if kind == "int":
+        ctx.lower("pandas raises on missing values when casting to int; Polars keeps them missing", 0.95)
+    return code.method("cast", emit.atom(polars)), kind
+

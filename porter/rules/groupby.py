@@ -1,0 +1,326 @@
+"""Aggregation: groupby + agg / sum / mean / ... / size, and whole-column reductions,
+value_counts, unique, nunique, describe."""
+
+from __future__ import annotations
+
+from typing import Any
+
+from porter.emit import code as emit
+from porter.emit.code import Code
+from porter.rules import rule
+from porter.translate.context import PandasCall, RuleContext, Unsupported, grouping_code
+from porter.translate.values import Column, Frame, Grouped, Module, Opaque, Scalar, Value
+
+AGGREGATIONS = ("sum", "mean", "median", "min", "max", "std", "var", "count", "nunique",
+                "first", "last", "size")
+COUNTS = {"count", "nunique", "size"}
+
+
+def agg_expr(column: Code, how: str, dtype: str | None = None) -> Code:
+    """One pandas aggregation as a Polars expression, with pandas' treatment of missing values."""
+    if how == "count":  # non-missing values; Int64 so later arithmetic cannot wrap around
+        return column.method("count").method("cast", emit.atom("pl.Int64"))
+    if how == "nunique":  # pandas does not count missing values
+        return column.method("drop_nulls").method("n_unique").method("cast", emit.atom("pl.Int64"))
+    if how in ("first", "last"):  # pandas skips missing values
+        return column.method(how, ignore_nulls=True)
+    if how == "sum" and dtype == "str":  # pandas concatenates text
+        return column.attr("str").method("join", "")
+    if how in ("sum", "mean", "median", "min", "max", "std", "var"):
+        return column.method(how)
+    raise Unsupported(f"aggregation {how!r}")
+
+
+def how_name(value: Value) -> str:
+    if isinstance(value, Opaque) and isinstance(value.const, str):
+        return value.const
+    if isinstance(value, Module):
+        return value.qualname.rsplit(".", 1)[-1]
+    if isinstance(value, Opaque) and value.code.text in ("sum", "min", "max", "len"):
+        return {"len": "size"}.get(value.code.text, value.code.text)
+    raise Unsupported(f"aggregation {value.code.text} (a function porter cannot read)")
+
+
+def grouped_of(call: PandasCall) -> Grouped:
+    assert isinstance(call.receiver, Grouped)
+    return call.receiver
+
+
+@rule("frame.groupby")
+def groupby(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.groupby(keys, sort, dropna, as_index) -> a pending group_by.
+
+    Handles: rows with a missing key are dropped (dropna=True); keys sorted (sort=True) or in
+    order of first appearance (sort=False); keys as the index (as_index=True).
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "by", "sort", "dropna", "as_index", "observed", positional=1)
+    by = call.arg("by", 0)
+    if isinstance(by, Column) and by.name is not None and by.code.text == emit.col(by.name).text:
+        keys: list[str] = [by.name]
+    else:
+        keys_const = call.const("by", 0)
+        keys = [keys_const] if isinstance(keys_const, str) else list(keys_const)
+    if not all(isinstance(k, str) for k in keys):
+        raise Unsupported("grouping by something other than column names")
+    if call.const("observed", None, True) is not True:
+        raise Unsupported("observed=False adds unseen categories")
+    if any(frame.dtype(k) == "category" for k in keys):
+        ctx.lower("category keys sort by their categories in pandas; porter sorts by text, which "
+                  "is the same for categories made by astype('category')", 0.9)
+    return Grouped(frame.code, frame=frame, keys=tuple(keys),
+                   sort=bool(call.const("sort", None, True)),
+                   dropna=bool(call.const("dropna", None, True)),
+                   as_index=bool(call.const("as_index", None, True)))
+
+
+@rule("groupby.getitem")
+def groupby_getitem(call: PandasCall, ctx: RuleContext) -> Value:
+    """g["kg"] / g[["kg", "price"]] -> the columns to aggregate."""
+    grouped = grouped_of(call)
+    key = call.args[0]
+    if isinstance(key, Opaque) and isinstance(key.const, str):
+        return Grouped(grouped.code, frame=grouped.frame, keys=grouped.keys, sort=grouped.sort,
+                       dropna=grouped.dropna, as_index=grouped.as_index, selection=(key.const,),
+                       single=True, prepared=grouped.prepared)
+    if isinstance(key, Opaque) and isinstance(key.const, list):
+        return Grouped(grouped.code, frame=grouped.frame, keys=grouped.keys, sort=grouped.sort,
+                       dropna=grouped.dropna, as_index=grouped.as_index,
+                       selection=tuple(key.const), single=False, prepared=grouped.prepared)
+    raise Unsupported("selecting group columns by a computed key")
+
+
+def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleContext,
+              *, series_name: str | None = None, is_series: bool = False) -> Value:
+    """The frame of aggregates, sorted like pandas, as a frame or (for one column) a Series."""
+    code = grouping_code(grouped).method("agg", *exprs)
+    keys = list(grouped.keys)
+    if grouped.sort:
+        # keys are unique after grouping, so the sort is total; a kept null key sorts last
+        kwargs = {} if grouped.dropna else {"nulls_last": True}
+        code = code.method("sort", emit.names_arg(keys), **kwargs)
+    columns = (*keys, *names)
+    index = tuple(keys) if grouped.as_index else ()
+    frame = Frame(code, columns=columns, index=index, labels_intact=not grouped.as_index)
+    if is_series and grouped.as_index:
+        name = series_name
+        return Column(emit.col(name if name is not None else names[0]), frame=frame,
+                      name=name, refs=frozenset(names))
+    return frame
+
+
+def target_columns(grouped: Grouped, ctx: RuleContext) -> list[str] | None:
+    if grouped.selection is not None:
+        return list(grouped.selection)
+    if grouped.frame.columns is not None:
+        return [c for c in grouped.frame.columns if c not in grouped.keys]
+    return None
+
+
+@rule(*(f"groupby.{how}" for how in AGGREGATIONS))
+def reduce(call: PandasCall, ctx: RuleContext) -> Value:
+    """g.sum() / mean / median / min / max / std / var / count / nunique / first / last / size.
+
+    Handles: missing values skipped by first/last/nunique/count; counts as Int64; keys sorted.
+    """
+    grouped = grouped_of(call)
+    how = call.name
+    allowed = {"numeric_only", "ddof"} if how in ("std", "var") else {"numeric_only"}
+    ctx.reject_unknown(call, *allowed)
+    if call.const("numeric_only", None, False):
+        raise Unsupported("numeric_only=True needs the column types")
+    if how == "size":
+        expr = emit.pl("len").method("cast", emit.atom("pl.Int64"))
+        if grouped.as_index:
+            return aggregate(grouped, [expr.method("alias", "size")], ["size"], ctx,
+                             series_name=None, is_series=True)
+        return aggregate(grouped, [expr.method("alias", "size")], ["size"], ctx)
+    ddof = call.const("ddof", None, 1)
+    columns = target_columns(grouped, ctx)
+    if columns is None:
+        ctx.lower("the non-key columns are not known: text columns would fail in Polars "
+                  "(pandas concatenates or raises); run with --data to know them", 0.85)
+        expr = agg_expr(emit.pl("all"), how)
+        if how in ("std", "var") and ddof != 1:
+            expr = emit.pl("all").method(how, ddof=ddof)
+        return aggregate(grouped, [expr], [], ctx)
+    exprs = []
+    for name in columns:
+        expr = agg_expr(emit.col(name), how, grouped.frame.dtype(name))
+        if how in ("std", "var") and ddof != 1:
+            expr = emit.col(name).method(how, ddof=ddof)
+        exprs.append(expr)
+    single = grouped.single and len(columns) == 1
+    return aggregate(grouped, exprs, columns, ctx, series_name=columns[0] if single else None,
+                     is_series=single)
+
+
+@rule("groupby.agg", "groupby.aggregate")
+def agg(call: PandasCall, ctx: RuleContext) -> Value:
+    """g.agg(total=("kg", "sum")), g.agg({"kg": "sum"}), g["kg"].agg(["sum", "mean"]), g.agg("sum").
+
+    Handles: output names as pandas makes them; a dict of lists gives MultiIndex columns in
+    pandas, flattened here to "kg_sum" (documented).
+    """
+    grouped = grouped_of(call)
+    exprs: list[Code] = []
+    names: list[str] = []
+
+    def add(column: str, how: str, name: str) -> None:
+        if how == "size":
+            expr = emit.pl("len").method("cast", emit.atom("pl.Int64"))
+        else:
+            expr = agg_expr(emit.col(column), how, grouped.frame.dtype(column))
+        exprs.append(expr.method("alias", name))
+        names.append(name)
+
+    if call.kwargs and not call.args:
+        for name, spec in call.kwargs.items():
+            if not (isinstance(spec, Opaque) and isinstance(spec.const, tuple) and len(spec.const) == 2):
+                raise Unsupported("named aggregation needs (column, function) pairs")
+            column, how = spec.const
+            add(column, how_name(Opaque(emit.lit(how), const=how)), name)
+        return aggregate(grouped, exprs, names, ctx)
+    if len(call.args) != 1 or call.kwargs:
+        raise Unsupported("agg with extra arguments")
+    spec_value = call.args[0]
+    spec: Any = spec_value.const if isinstance(spec_value, Opaque) and spec_value.is_const else None
+    if isinstance(spec, dict):
+        flattened = False
+        for column, hows in spec.items():
+            if isinstance(hows, list):
+                flattened = True
+                for how in hows:
+                    add(column, how, f"{column}_{how}")
+            else:
+                add(column, hows, column)
+        if flattened:
+            ctx.lower("pandas makes MultiIndex columns here; porter names them column_function", 0.9)
+        return aggregate(grouped, exprs, names, ctx)
+    if isinstance(spec, list):
+        columns = target_columns(grouped, ctx)
+        if columns is None or len(columns) != 1:
+            raise Unsupported("a list of functions over several columns makes MultiIndex columns")
+        for how in spec:
+            add(columns[0], str(how), str(how))
+        return aggregate(grouped, exprs, names, ctx)
+    how = how_name(spec_value)
+    forward = PandasCall(grouped, how, (), {}, call.node)
+    if how not in AGGREGATIONS:
+        raise Unsupported(f"aggregation {how!r}")
+    return reduce(forward, ctx)
+
+
+# -- whole-column reductions ------------------------------------------------------------------
+
+def scalar_of(column: Column, expr: Code, pytype: str | None = None) -> Scalar:
+    code = column.frame.code.method("select", expr).method("collect").method("item")
+    agg_column = Column(expr, frame=column.frame, name=column.name, refs=column.refs,
+                        versions=column.versions)
+    return Scalar(code, pytype=pytype, agg=agg_column)
+
+
+@rule(*(f"series.{how}" for how in ("sum", "mean", "median", "min", "max", "std", "var", "count",
+                                   "nunique")))
+def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.sum() / mean / median / min / max / std / var / count / nunique -> a Python scalar.
+
+    Handles: missing values are skipped (nunique does not count them); std/var with ddof=1.
+    Caveats: the mean of an empty column is None in Polars, NaN in pandas.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "ddof", "skipna", "numeric_only")
+    if call.const("skipna", None, True) is not True:
+        raise Unsupported("skipna=False")
+    how = call.name
+    code = ctx.bool_expr(column, column.frame) if column.dtype == "bool" else column.code
+    if how in ("std", "var"):
+        expr = code.method(how, ddof=call.const("ddof", None, 1))
+    elif how in ("count", "nunique"):
+        expr = agg_expr(code, how)
+    else:
+        expr = code.method(how)
+    return scalar_of(column, expr)
+
+
+@rule("series.value_counts")
+def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.value_counts() -> counts by value, most frequent first, ties in order of appearance.
+
+    Handles: missing values not counted (dropna=True); normalize=True gives "proportion";
+    ascending=True.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "normalize", "sort", "ascending", "dropna")
+    name = column.name
+    if name is None:
+        raise Unsupported("counting an unnamed Series")
+    frame = column.frame.code.method("select", column.code if column.code.text == emit.col(name).text
+                                     else column.code.method("alias", name))
+    if call.const("dropna", None, True):
+        frame = frame.method("drop_nulls")
+    counts = frame.method("group_by", name, maintain_order=True).method(
+        "agg", emit.pl("len").method("cast", emit.atom("pl.Int64")).method("alias", "count"))
+    result_name = "count"
+    if call.const("normalize", None, False):
+        counts = counts.method("select", emit.col(name), emit.binop(
+            emit.col("count"), "/", emit.col("count").method("sum")).method("alias", "proportion"))
+        result_name = "proportion"
+    if call.const("sort", None, True):
+        descending = not call.const("ascending", None, False)
+        kwargs: dict[str, object] = {"descending": True} if descending else {}
+        counts = counts.method("sort", result_name, **kwargs, maintain_order=True)
+    result = Frame(counts, columns=(name, result_name), index=(name,), labels_intact=False)
+    return Column(emit.col(result_name), frame=result, name=result_name, dtype="int",
+                  refs=frozenset({result_name}))
+
+
+@rule("series.unique")
+def unique(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.unique() -> the distinct values in order of first appearance (a Polars Series).
+
+    Caveats: a missing value shows as None where pandas shows nan.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    code = column.frame.code.method("select", column.code.method("unique", maintain_order=True)) \
+        .method("collect").method("to_series")
+    return Scalar(code, pytype="series")
+
+
+@rule("frame.describe")
+def describe(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.describe() -> count, mean, std, min, 25%, 50%, 75%, max of the numeric columns.
+
+    Handles: percentiles interpolated linearly like pandas (Polars' default is "nearest");
+    booleans and text left out like pandas; the statistics as a "statistic" column (pandas'
+    index).
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call)
+    numeric = emit.atom("pl.selectors.numeric()")
+    as_float = emit.atom("pl.Float64")
+    stats: list[tuple[str, Code]] = [
+        ("count", numeric.method("count").method("cast", as_float)),
+        ("mean", numeric.method("mean")),
+        ("std", numeric.method("std")),
+        ("min", numeric.method("min").method("cast", as_float)),
+        ("25%", numeric.method("quantile", 0.25, "linear")),
+        ("50%", numeric.method("quantile", 0.5, "linear")),
+        ("75%", numeric.method("quantile", 0.75, "linear")),
+        ("max", numeric.method("max").method("cast", as_float)),
+    ]
+    parts = [frame.code.method("select", emit.pl("lit", name).method("alias", "statistic"), expr)
+             for name, expr in stats]
+    code = emit.Code("pl.concat([\n" + "".join(f"    {p.text},\n" for p in parts) + "])")
+    if frame.columns is not None and len(frame.dtypes) == len(frame.columns) and not any(
+            t in ("int", "float") for _, t in frame.dtypes):
+        raise Unsupported("describe of a frame without numeric columns describes text in pandas")
+    numeric_cols = tuple(c for c in frame.columns or () if frame.dtype(c) in ("int", "float")) or None
+    columns = ("statistic", *numeric_cols) if numeric_cols else None
+    return Frame(code, columns=columns, index=("statistic",), labels_intact=False)
+

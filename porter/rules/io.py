@@ -1,0 +1,281 @@
+"""Reading and writing: pd.read_csv / read_parquet → scans, to_csv / to_parquet → sinks,
+pd.DataFrame from literals → pl.LazyFrame."""
+
+from __future__ import annotations
+
+import re
+from typing import Any
+
+from porter.emit import code as emit
+from porter.emit.code import Code
+from porter.rules import rule
+from porter.rules.io_options import DTYPES, NA_CONSTANT, PANDAS_NA_TOKENS
+from porter.translate import handover
+from porter.translate.context import PandasCall, RuleContext, Unsupported, derive, select_columns
+from porter.translate.values import Frame, Module, Opaque, Scalar, Value
+
+READ_CSV_IGNORED = {"low_memory", "engine", "memory_map", "on_bad_lines"}
+
+
+def dtype_spelling(value: Value) -> str | None:
+    """How a dtype was written: "int", "str", "float64", "category"…"""
+    if isinstance(value, Opaque) and value.is_const:
+        if isinstance(value.const, type):
+            return value.const.__name__
+        if isinstance(value.const, str):
+            return value.const
+    if isinstance(value, Module):
+        return value.qualname.rsplit(".", 1)[-1]
+    return None
+
+
+def polars_dtype(value: Value) -> tuple[str, str]:
+    spelled = dtype_spelling(value)
+    if spelled is None or spelled not in DTYPES:
+        raise Unsupported(f"dtype {value.code.text} has no Polars counterpart in porter's table")
+    return DTYPES[spelled]
+
+
+@rule("pd.read_csv")
+def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.read_csv -> pl.scan_csv.
+
+    Handles: pandas' missing-value tokens (null_values), type inference over the whole file
+    (infer_schema_length=None), sep, usecols in file order, dtype, parse_dates, na_values,
+    nrows, skiprows (a count).
+    Caveats: index_col, header/names, converters, encodings other than UTF-8 and a list of
+    skipped rows are TODOs.
+    """
+    known = {"filepath_or_buffer", "sep", "delimiter", "usecols", "dtype", "parse_dates",
+             "na_values", "nrows", "skiprows", "encoding", *READ_CSV_IGNORED}
+    ctx.reject_unknown(call, *known, positional=1)
+    source = call.arg("filepath_or_buffer", 0)
+    options: dict[str, Any] = {}
+    kwargs: dict[str, object] = {}
+    sep = call.const("sep", None, None) or call.const("delimiter", None, None)
+    if sep is not None:
+        if len(sep) != 1:
+            raise ctx.todo(f"separator {sep!r} is not a single character (pandas reads it as a regex)")
+        if sep != ",":
+            kwargs["separator"] = sep
+        options["sep"] = sep
+    encoding = call.const("encoding", None, None)
+    if encoding is not None and encoding.lower().replace("-", "").replace("_", "") not in ("utf8", "utf8sig"):
+        raise ctx.todo(f"encoding {encoding!r}: Polars reads UTF-8 only; re-encode the file first")
+    na_values = call.const("na_values", None, None)
+    nulls: object = emit.atom(NA_CONSTANT)
+    if na_values is not None:
+        if isinstance(na_values, dict):
+            raise ctx.todo("per-column na_values have no scan option")
+        extra = [na_values] if isinstance(na_values, str) else [str(v) for v in na_values]
+        nulls = emit.binop(emit.atom(NA_CONSTANT), "+", [v for v in extra if v not in PANDAS_NA_TOKENS])
+        options["na_values"] = extra
+    kwargs["null_values"] = nulls
+    dtype = call.const("dtype", None, None) if call.has("dtype") and _const_dtype_dict(call) else None
+    if call.has("dtype") and dtype is None:
+        dtype_value = call.arg("dtype")
+        spelled = dtype_spelling(dtype_value)
+        raise ctx.todo(f"dtype={spelled or dtype_value.code.text} for every column: give a dict of columns")
+    overrides: dict[str, Code] = {}
+    dtypes: dict[str, str] = {}
+    if dtype:
+        for column, kind in call.kwargs["dtype"].const.items():  # type: ignore[union-attr]
+            spelled = kind.__name__ if isinstance(kind, type) else str(kind)
+            if spelled not in DTYPES:
+                raise ctx.todo(f"dtype {spelled!r} for column {column!r} is not in porter's table")
+            overrides[column] = emit.atom(DTYPES[spelled][0])
+            dtypes[column] = DTYPES[spelled][1]
+        options["dtype"] = dict(call.kwargs["dtype"].const)  # type: ignore[union-attr]
+        kwargs["schema_overrides"] = overrides
+    kwargs["infer_schema_length"] = None
+    skiprows = call.const("skiprows", None, None)
+    if skiprows is not None:
+        if not isinstance(skiprows, int):
+            raise ctx.todo("a list of rows to skip: filter them after the scan")
+        kwargs["skip_rows"] = skiprows
+        options["skiprows"] = skiprows
+    nrows = call.const("nrows", None, None)
+    if nrows is not None:
+        kwargs["n_rows"] = nrows
+
+    code = emit.pl("scan_csv", source.code, **kwargs)
+    schema = ctx.input_schema("csv", source.const if isinstance(source, Opaque) else None, options)
+    columns = tuple(schema) if schema else None
+    for column, kind in (schema or {}).items():
+        dtypes.setdefault(column, kind)
+    frame = Frame(code, columns=columns, dtypes=tuple(dtypes.items()))
+
+    usecols = call.const("usecols", None, None)
+    if usecols is not None:
+        frame = _select_in_file_order(frame, list(usecols), ctx)
+    parse_dates = call.const("parse_dates", None, None)
+    if parse_dates:
+        if parse_dates is True or not all(isinstance(c, str) for c in parse_dates):
+            raise ctx.todo("parse_dates must list column names")
+        ctx.lower("parse_dates: the format is inferred by Polars; ISO dates parse the same, "
+                  "ambiguous day/month orders may not", 0.85)
+        exprs = [emit.col(c).attr("str").method("to_datetime", time_unit="us") for c in parse_dates]
+        frame = derive(frame, frame.code.method("with_columns", *exprs), same_rows=True,
+                       dtypes=tuple({**dict(frame.dtypes), **{c: "datetime" for c in parse_dates}}.items()))
+    if schema is None and not dtype:
+        ctx.lower("column types are inferred from the data the same way in both, except "
+                  "integer columns with missing values (float in pandas)", 0.95)
+    return frame
+
+
+def _const_dtype_dict(call: PandasCall) -> bool:
+    value = call.kwargs.get("dtype")
+    return isinstance(value, Opaque) and isinstance(value.const, dict)
+
+
+def _select_in_file_order(frame: Frame, usecols: list[Any], ctx: RuleContext) -> Frame:
+    """pandas keeps the file's column order whatever the order of `usecols`."""
+    if not all(isinstance(c, str) for c in usecols):
+        raise ctx.todo("usecols by position or by function")
+    if frame.columns is not None:
+        ordered = [c for c in frame.columns if c in usecols]
+        return select_columns(frame, frame.code.method("select", *ordered), ordered)
+    if len(usecols) == 1:
+        return select_columns(frame, frame.code.method("select", usecols[0]), usecols)
+    pattern = "^(" + "|".join(re.escape(c) for c in usecols) + ")$"
+    code = frame.code.method("select", emit.col(pattern))
+    return derive(frame, code, same_rows=True, columns=None)
+
+
+@rule("pd.read_parquet")
+def read_parquet(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.read_parquet -> pl.scan_parquet.
+
+    Handles: NaN stored in float columns becomes a missing value, as pandas reads it.
+    """
+    ctx.reject_unknown(call, "path", "columns", "engine", positional=1)
+    source = call.arg("path", 0)
+    schema = ctx.input_schema("parquet", source.const if isinstance(source, Opaque) else None, {})
+    frame = Frame(emit.pl("scan_parquet", source.code),
+                  columns=tuple(schema) if schema else None,
+                  dtypes=tuple((schema or {}).items()))
+    if schema is None or "float" in schema.values():
+        frame = derive(frame, frame.code.method(
+            "with_columns", emit.pl("col", emit.atom("pl.Float32"), emit.atom("pl.Float64"))
+            .method("fill_nan", None)), same_rows=True)
+    columns = call.const("columns", None, None)
+    if columns is not None:
+        frame = select_columns(frame, frame.code.method("select", *columns), list(columns))
+    return frame
+
+
+def _write_target(call: PandasCall, ctx: RuleContext, name: str) -> Value:
+    target = call.arg("path_or_buf", 0, None) if name == "csv" else call.arg("path", 0, None)
+    if target is None or (isinstance(target, Opaque) and target.is_const and target.const is None):
+        raise ctx.todo(f"to_{name}() without a path returns the text; collect and write it")
+    return target
+
+
+@rule("frame.to_csv", "series.to_csv")
+def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
+    """DataFrame.to_csv -> LazyFrame.sink_csv.
+
+    Handles: index=False; the index columns porter tracks (after a groupby) are written first
+    like pandas writes the index; sep, header, na_rep, columns.
+    Caveats: text of booleans (true/false) and datetimes (ISO `T`) differs; with the default
+    index=True on a plain frame the write is handed to pandas so the row labels are written.
+    """
+    ctx.reject_unknown(call, "path_or_buf", "index", "sep", "header", "na_rep", "columns",
+                       "encoding", positional=1)
+    target = _write_target(call, ctx, "csv")
+    frame = _as_frame(call)
+    columns = call.const("columns", None, None)
+    if columns is not None:
+        frame = select_columns(frame, frame.code.method("select", *frame.index, *columns),
+                               [*frame.index, *columns])
+    index = call.const("index", None, True)
+    if index and not frame.index:
+        if not frame.labels_intact:
+            raise ctx.todo("index=True writes pandas' row labels, which are no longer 0..n-1 here")
+        ctx.handover = True
+        ctx.lower("index=True writes the row labels: handed over to pandas for the write", 1.0)
+        return Scalar(handover.to_pandas(frame).method("to_csv", target.code))
+    kwargs: dict[str, object] = {}
+    sep = call.const("sep", None, ",")
+    if sep != ",":
+        kwargs["separator"] = sep
+    if call.const("header", None, True) is False:
+        kwargs["include_header"] = False
+    na_rep = call.const("na_rep", None, "")
+    if na_rep:
+        kwargs["null_value"] = na_rep
+    if frame.dtypes and not ({"bool", "datetime"} & {t for _, t in frame.dtypes}) \
+            and frame.columns is not None and len(frame.dtypes) == len(frame.columns):
+        ctx.confidence = max(ctx.confidence, 0.98)
+    return Scalar(frame.code.method("sink_csv", target.code, **kwargs))
+
+
+@rule("frame.to_parquet", "series.to_parquet")
+def to_parquet(call: PandasCall, ctx: RuleContext) -> Value:
+    """DataFrame.to_parquet -> LazyFrame.sink_parquet.
+
+    Handles: the index columns porter tracks are written as columns.
+    """
+    ctx.reject_unknown(call, "path", "index", "engine", "compression", positional=1)
+    target = _write_target(call, ctx, "parquet")
+    frame = _as_frame(call)
+    index = call.const("index", None, None)
+    if index and not frame.index:
+        raise ctx.todo("index=True stores the row labels as a column; add it with with_row_index")
+    kwargs: dict[str, object] = {}
+    compression = call.const("compression", None, None)
+    if compression is not None:
+        kwargs["compression"] = compression
+    return Scalar(frame.code.method("sink_parquet", target.code, **kwargs))
+
+
+def _as_frame(call: PandasCall) -> Frame:
+    receiver = call.receiver
+    if isinstance(receiver, Frame):
+        return receiver
+    from porter.translate.values import Column
+    assert isinstance(receiver, Column)
+    code = handover.series_frame(receiver)
+    name = receiver.name if receiver.name is not None else "0"
+    return Frame(code, columns=(*receiver.frame.index, name), index=receiver.frame.index)
+
+
+@rule("pd.DataFrame")
+def data_frame(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.DataFrame({...}) -> pl.LazyFrame({...}, strict=False).
+
+    Handles: NaN in the literal is written as None (a missing value); mixed int/float lists
+    (strict=False takes the common type, as pandas does).
+    """
+    ctx.reject_unknown(call, "data", "columns", positional=1)
+    data = call.arg("data", 0, None)
+    if data is None:
+        raise ctx.todo("an empty DataFrame has no schema to build lazily")
+    if isinstance(data, Opaque) and isinstance(data.const, dict):
+        columns = call.const("columns", None, None)
+        literal = data.const
+        if columns is not None:
+            literal = {c: literal[c] for c in columns if c in literal}
+        if not all(isinstance(v, list) for v in literal.values()):
+            raise ctx.todo("scalar values are broadcast by pandas; write lists")
+        dtypes = {k: kind for k, v in literal.items() if (kind := _literal_dtype(v))}
+        return Frame(emit.pl("LazyFrame", literal, strict=False), columns=tuple(literal),
+                     dtypes=tuple(dtypes.items()))
+    if isinstance(data, Opaque):
+        ctx.lower("the data is built at run time: Polars reads dicts of lists and lists of "
+                  "dicts, but may type mixed columns differently", 0.8)
+        return Frame(emit.pl("LazyFrame", data.code, strict=False, infer_schema_length=None))
+    raise ctx.todo("building a frame from another pandas object")
+
+
+def _literal_dtype(values: list[Any]) -> str | None:
+    kinds = {type(v) for v in values if v is not None and v == v}
+    if kinds == {bool}:
+        return "bool"
+    if kinds == {int}:
+        return "int"
+    if kinds <= {int, float} and kinds:
+        return "float"
+    if kinds == {str}:
+        return "str"
+    return None

@@ -1,0 +1,51 @@
+"""pandas reader options and their Polars counterparts, shared by the io rules and the schema
+reader (`--data`)."""
+
+from __future__ import annotations
+
+from typing import Any
+
+import polars as pl
+
+# pandas' default missing-value tokens (sorted(pandas._libs.parsers.STR_NA_VALUES), pandas 3.1).
+# Polars only treats the empty field as missing, so every scan lists them.
+PANDAS_NA_TOKENS = ["", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+                    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null"]
+NA_CONSTANT = "PANDAS_NA_VALUES"
+
+# dtype spellings in read_csv(dtype=...) / astype(...) → (Polars dtype code, porter dtype name)
+DTYPES: dict[str, tuple[str, str]] = {
+    "str": ("pl.String", "str"), "string": ("pl.String", "str"), "object": ("pl.String", "str"),
+    "int": ("pl.Int64", "int"), "int64": ("pl.Int64", "int"), "Int64": ("pl.Int64", "int"),
+    "int32": ("pl.Int32", "int"), "Int32": ("pl.Int32", "int"),
+    "float": ("pl.Float64", "float"), "float64": ("pl.Float64", "float"),
+    "Float64": ("pl.Float64", "float"), "float32": ("pl.Float32", "float"),
+    "bool": ("pl.Boolean", "bool"), "boolean": ("pl.Boolean", "bool"),
+    "category": ("pl.Categorical", "category"),
+    "datetime64[ns]": ("pl.Datetime(\"ns\")", "datetime"),
+    "datetime64[us]": ("pl.Datetime(\"us\")", "datetime"),
+}
+PYTHON_TYPES = {"str": "str", "int": "int", "float": "float", "bool": "bool"}
+
+
+def scan_kwargs(options: dict[str, Any]) -> dict[str, Any]:
+    """Real keyword arguments for pl.scan_csv from literal read_csv options (for --data)."""
+    kwargs: dict[str, Any] = {"null_values": list(PANDAS_NA_TOKENS), "infer_schema_length": None}
+    if "sep" in options:
+        kwargs["separator"] = options["sep"]
+    if "skiprows" in options:
+        kwargs["skip_rows"] = options["skiprows"]
+    na = options.get("na_values")
+    if isinstance(na, str):
+        kwargs["null_values"].append(na)
+    elif isinstance(na, list):
+        kwargs["null_values"].extend(str(v) for v in na)
+    dtype = options.get("dtype")
+    if isinstance(dtype, dict):
+        overrides = {}
+        for column, name in dtype.items():
+            spelled = name.__name__ if isinstance(name, type) else str(name)
+            if spelled in DTYPES:
+                overrides[column] = eval(DTYPES[spelled][0], {"pl": pl})  # noqa: S307 - our table
+        kwargs["schema_overrides"] = overrides
+    return kwargs

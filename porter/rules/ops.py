@@ -1,0 +1,240 @@
+"""Operators and element-wise numbers: arithmetic, comparisons, & | ~, round, abs, clip,
+np.where.
+
+porter keeps Polars frames free of NaN (NaN becomes null wherever it can arise), so a missing
+value is always null on the Polars side; these rules rely on that.
+"""
+
+from __future__ import annotations
+
+from porter.emit import code as emit
+from porter.emit.code import Code
+from porter.rules import rule
+from porter.translate.context import PandasCall, RuleContext, Unsupported, derive, derived_column
+from porter.translate.values import Column, Frame, Opaque, Value
+
+NUMERIC = {"int", "float"}
+
+
+def base_column(*values: Value) -> Column:
+    for value in values:
+        if isinstance(value, Column):
+            return value
+    raise Unsupported("no column among the operands")
+
+
+def _is_nonzero_constant(value: Value) -> bool:
+    return isinstance(value, Opaque) and isinstance(value.const, (int, float)) \
+        and not isinstance(value.const, bool) and value.const != 0
+
+
+def _dtype(value: Value) -> str | None:
+    if isinstance(value, Column):
+        return value.dtype
+    if isinstance(value, Opaque) and value.is_const:
+        return {bool: "bool", int: "int", float: "float", str: "str"}.get(type(value.const))
+    return None
+
+
+@rule("series.arith")
+def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
+    """a + b, a - b, a * b, a / b, a // b, a % b, a ** b on columns and scalars.
+
+    Handles: 0/0 gives NaN in both, which porter turns into a missing value (fill_nan(None));
+    integer // and % by zero give inf/NaN in pandas and null in Polars, so // is written as a
+    floored true division and % is guarded; bool + bool is a logical or in pandas.
+    """
+    left, right = call.receiver, call.args[0]
+    assert left is not None
+    column = base_column(left, right)
+    frame = column.frame
+    op = call.name
+    lcode, rcode = ctx.bool_expr(left, frame), ctx.bool_expr(right, frame)
+    ltype, rtype = _dtype(left), _dtype(right)
+    dtype: str | None = None
+    if op == "+" and ltype == rtype == "bool":
+        return derived_column(column, emit.binop(lcode, "|", rcode), dtype="bool", others=[left, right])
+    if op == "/":
+        code = emit.binop(lcode, "/", rcode)
+        if not _is_nonzero_constant(right):
+            code = code.method("fill_nan", None)
+        dtype = "float"
+    elif op == "//":
+        if _is_nonzero_constant(right):
+            code = emit.binop(lcode, "//", rcode)
+            dtype = ltype if ltype in NUMERIC else None
+        else:
+            code = emit.binop(lcode, "/", rcode).method("floor").method("fill_nan", None)
+            dtype = "float"
+            ctx.lower("floor division is computed as floored true division (float result)", 0.95)
+    elif op == "%":
+        code = emit.binop(lcode, "%", rcode)
+        if not _is_nonzero_constant(right):
+            code = emit.when(emit.binop(rcode, "!=", 0), code)
+    elif op in ("+", "-", "*", "**"):
+        code = emit.binop(lcode, op, rcode)
+        if ltype in NUMERIC and rtype in NUMERIC:
+            dtype = "float" if "float" in (ltype, rtype) else "int"
+        elif op == "+" and "str" in (ltype, rtype):
+            dtype = "str"
+        if op == "**":
+            code = code.method("fill_nan", None)
+            ctx.lower("a negative base to a fractional power is NaN in both (made missing here)", 0.98)
+    else:
+        raise Unsupported(f"operator {op} on columns")
+    if _is_str_literal(left) and op == "+":
+        code = emit.binop(emit.pl("lit", left.const), "+", rcode)  # type: ignore[union-attr]
+    return derived_column(column, code, dtype=dtype, others=[left, right], name=_result_name(left, right))
+
+
+def _is_str_literal(value: Value) -> bool:
+    return isinstance(value, Opaque) and isinstance(value.const, str)
+
+
+def _result_name(left: Value, right: Value) -> str | None:
+    """pandas keeps a name when both sides share it (or one side is a scalar)."""
+    names = [v.name for v in (left, right) if isinstance(v, Column)]
+    return names[0] if len(set(names)) == 1 else None
+
+
+@rule("series.compare")
+def compare(call: PandasCall, ctx: RuleContext) -> Value:
+    """a == b, a != b, a < b, ... on columns and scalars.
+
+    Handles: a comparison with a missing value is False in pandas (True for !=) and null in
+    Polars; != is filled with True right away, the others are filled with False where the
+    result is negated or used as a value (a filter drops null rows like False rows).
+    """
+    left, right = call.receiver, call.args[0]
+    assert left is not None
+    column = base_column(left, right)
+    frame = column.frame
+    lcode, rcode = ctx.expr(left, frame), ctx.expr(right, frame)
+    if call.name == "!=":
+        if isinstance(right, Opaque) and right.is_const and right.const is not None:
+            code = lcode.method("ne_missing", rcode)
+        else:
+            code = emit.binop(lcode, "!=", rcode).method("fill_null", True)
+        return derived_column(column, code, dtype="bool", others=[left, right])
+    if _date_like(right) and column.dtype not in ("str",):
+        ctx.lower("comparing with a date written as text: pandas parses it when the column "
+                  "holds datetimes", 0.7)
+    code = emit.binop(lcode, call.name, rcode)
+    return derived_column(column, code, dtype="bool", null_is_false=True, others=[left, right])
+
+
+def _date_like(value: Value) -> bool:
+    return isinstance(value, Opaque) and isinstance(value.const, str) and \
+        len(value.const) >= 8 and value.const[:4].isdigit() and value.const[4:5] in "-/"
+
+
+@rule("series.logical")
+def logical(call: PandasCall, ctx: RuleContext) -> Value:
+    """mask & mask, mask | mask, mask ^ mask.
+
+    Handles: Kleene logic with null standing for pandas' False gives the same rows for & and |;
+    ^ fills first.
+    """
+    left, right = call.receiver, call.args[0]
+    assert left is not None
+    column = base_column(left, right)
+    frame = column.frame
+    if call.name == "^":
+        code = emit.binop(ctx.bool_expr(left, frame), "^", ctx.bool_expr(right, frame))
+        return derived_column(column, code, dtype="bool", others=[left, right])
+    nullable = any(isinstance(v, Column) and v.null_is_false for v in (left, right))
+    code = emit.binop(ctx.expr(left, frame), call.name, ctx.expr(right, frame))
+    return derived_column(column, code, dtype="bool", null_is_false=nullable, others=[left, right])
+
+
+@rule("series.unary")
+def unary(call: PandasCall, ctx: RuleContext) -> Value:
+    """~mask, -s.
+
+    Handles: ~ of a comparison that met a missing value is True in pandas: filled with False
+    before negating.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    if call.name == "~":
+        return derived_column(column, emit.unary("~", ctx.bool_expr(column, column.frame)),
+                              dtype=column.dtype)
+    if call.name == "-" and column.dtype == "bool":
+        return derived_column(column, emit.unary("~", ctx.bool_expr(column, column.frame)), dtype="bool")
+    return derived_column(column, emit.unary(call.name, column.code), dtype=column.dtype)
+
+
+@rule("series.round", "frame.round")
+def round_(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.round(n) / round(s, n) -> .round(n) (both round half to even)."""
+    ctx.reject_unknown(call, "decimals", positional=1)
+    decimals = call.const("decimals", 0, 0)
+    if not isinstance(decimals, int) or decimals < 0:
+        raise Unsupported("rounding to tens or hundreds (negative decimals)")
+    receiver = call.receiver
+    if isinstance(receiver, Column):
+        return derived_column(receiver, receiver.code.method("round", decimals), dtype=receiver.dtype)
+    assert isinstance(receiver, Frame)
+    # pandas rounds every numeric column; integers are unchanged by it
+    code = receiver.code.method("with_columns", emit.atom("pl.selectors.float()").method("round", decimals))
+    return derive(receiver, code, same_rows=True)
+
+
+@rule("series.abs")
+def abs_(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.abs() / abs(s) -> .abs()."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    return derived_column(column, column.code.method("abs"), dtype=column.dtype)
+
+
+@rule("series.clip")
+def clip(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.clip(lower, upper) -> .clip(lower, upper).
+
+    Handles: an integer column with float bounds becomes float in pandas; Polars would
+    truncate the bounds, so the column is cast to Float64 first.
+    """
+    ctx.reject_unknown(call, "lower", "upper", positional=2)
+    column = call.receiver
+    assert isinstance(column, Column)
+    lower = call.arg("lower", 0, None)
+    upper = call.arg("upper", 1, None)
+    bounds = [b for b in (lower, upper) if b is not None]
+    code = column.code
+    if any(isinstance(b, Opaque) and isinstance(b.const, float) for b in bounds) and column.dtype != "float":
+        code = code.method("cast", emit.atom("pl.Float64"))
+    if any(isinstance(b, Column) for b in bounds):
+        raise Unsupported("bounds given per row")
+    args = [ctx.expr(b, column.frame) if b is not None else None for b in (lower, upper)]
+    return derived_column(column, code.method("clip", *args), dtype=column.dtype)
+
+
+@rule("np.where")
+def np_where(call: PandasCall, ctx: RuleContext) -> Value:
+    """np.where(cond, a, b) -> pl.when(cond).then(a).otherwise(b).
+
+    Handles: a condition that met a missing value takes the otherwise branch, as in pandas.
+    """
+    if len(call.args) != 3 or call.kwargs:
+        raise Unsupported("np.where with one argument returns positions")
+    cond, then, other = call.args
+    column = base_column(cond, then, other)
+    frame = column.frame
+    code = emit.when(ctx.expr(cond, frame), _branch(then, ctx, frame), _branch(other, ctx, frame))
+    return derived_column(column, code, dtype=_common_dtype(then, other), name=None,
+                          others=[cond, then, other])
+
+
+def _branch(value: Value, ctx: RuleContext, frame: Frame) -> Code:
+    if isinstance(value, Opaque) and isinstance(value.const, str):
+        return emit.pl("lit", value.const)
+    if isinstance(value, Column):
+        return ctx.bool_expr(value, frame)
+    return ctx.expr(value, frame)
+
+
+def _common_dtype(*values: Value) -> str | None:
+    kinds = {_dtype(v) for v in values}
+    return kinds.pop() if len(kinds) == 1 else None
+

@@ -1,0 +1,280 @@
+"""Row operations: drop_duplicates, sort_values, nlargest / nsmallest, reset_index, isin,
+between, replace."""
+
+from __future__ import annotations
+
+from typing import Any
+
+from porter.emit import code as emit
+from porter.emit.code import Code
+from porter.rules import rule
+from porter.translate.context import PandasCall, RuleContext, Unsupported, derive, derived_column
+from porter.translate.values import Column, Frame, Opaque, Value
+
+KEEP = {"first": "first", "last": "last", False: "none"}
+
+
+@rule("frame.drop_duplicates")
+def drop_duplicates(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.drop_duplicates(subset, keep) -> .unique(subset, keep=..., maintain_order=True).
+
+    Handles: which row of a duplicate group is kept and the original row order (Polars'
+    default keep="any" and unordered output differ); missing values are equal to each other
+    in both.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "subset", "keep", "ignore_index", positional=1)
+    subset = call.const("subset", 0, None)
+    keep = call.const("keep", None, "first")
+    if keep not in KEEP:
+        raise Unsupported(f"keep={keep!r}")
+    args = [emit.names_arg([subset] if isinstance(subset, str) else subset)] if subset else []
+    code = frame.code.method("unique", *args, keep=KEEP[keep], maintain_order=True)
+    return derive(frame, code, same_rows=False, labels_intact=bool(call.const("ignore_index", None, False)))
+
+
+def sort_args(by: list[Any], ascending: Any, na_position: str) -> dict[str, object]:
+    if isinstance(ascending, list):
+        if len(ascending) != len(by):
+            raise Unsupported("ascending and by have different lengths")
+        descending: object = [not a for a in ascending]
+        if not any(descending):  # type: ignore[arg-type]
+            descending = False
+    else:
+        descending = not ascending
+    kwargs: dict[str, object] = {}
+    if descending:
+        kwargs["descending"] = descending
+    kwargs["nulls_last"] = na_position == "last"
+    kwargs["maintain_order"] = True
+    return kwargs
+
+
+@rule("frame.sort_values")
+def sort_values(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.sort_values(by, ascending, na_position) -> .sort(..., nulls_last=True, maintain_order=True).
+
+    Handles: missing values last (also when descending); a list for `ascending`; ties keep
+    their order (pandas' single-key default sort is not stable, so porter's is stricter).
+    Caveats: key= callables are TODOs.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "by", "ascending", "na_position", "kind", "ignore_index", positional=1)
+    by = call.const("by", 0)
+    by = [by] if isinstance(by, str) else list(by)
+    ascending = call.const("ascending", None, True)
+    na_position = call.const("na_position", None, "last")
+    code = frame.code.method("sort", emit.names_arg(by), **sort_args(by, ascending, na_position))
+    kind = call.const("kind", None, "quicksort")
+    if len(by) == 1 and kind not in ("stable", "mergesort"):
+        ctx.lower("pandas' default single-key sort may order ties differently", 0.97)
+    return derive(frame, code, same_rows=False, labels_intact=bool(call.const("ignore_index", None, False)))
+
+
+@rule("series.sort_values")
+def series_sort_values(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.sort_values() -> the column of the frame sorted by it."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "ascending", "na_position", "kind", "ignore_index")
+    frame = column.frame
+    ascending = call.const("ascending", None, True)
+    kwargs = sort_args([column.name], ascending, call.const("na_position", None, "last"))
+    sorted_frame = derive(frame, frame.code.method("sort", column.code, **kwargs), same_rows=False)
+    ctx.lower("pandas' default sort may order ties differently", 0.97)
+    return Column(column.code, frame=sorted_frame, name=column.name, dtype=column.dtype,
+                  refs=column.refs, versions=column.versions)
+
+
+@rule("frame.nlargest", "frame.nsmallest")
+def nlargest(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.nlargest(n, columns) -> .sort(columns, descending=True, nulls_last=True, maintain_order=True).head(n).
+
+    Handles: ties kept in their original order (keep="first"; top_k has no such guarantee);
+    missing values come last, as pandas appends them when n exceeds the values.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "n", "columns", "keep", positional=2)
+    n = call.const("n", 0)
+    columns = call.const("columns", 1)
+    keep = call.const("keep", None, "first")
+    if keep != "first":
+        raise Unsupported(f"keep={keep!r}")
+    columns = [columns] if isinstance(columns, str) else list(columns)
+    largest = call.name == "nlargest"
+    kwargs: dict[str, object] = {"descending": True} if largest else {}
+    kwargs |= {"nulls_last": True, "maintain_order": True}
+    code = frame.code.method("sort", emit.names_arg(columns), **kwargs).method("head", n)
+    return derive(frame, code, same_rows=False)
+
+
+@rule("series.nlargest", "series.nsmallest")
+def series_nlargest(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.nlargest(n) -> the column of the frame sorted by it, first n rows."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "n", "keep", positional=1)
+    n = call.const("n", 0, 5)
+    if call.const("keep", None, "first") != "first":
+        raise Unsupported("keep other than first")
+    kwargs: dict[str, object] = {"descending": True} if call.name == "nlargest" else {}
+    kwargs |= {"nulls_last": True, "maintain_order": True}
+    frame = column.frame
+    top = derive(frame, frame.code.method("sort", column.code, **kwargs).method("head", n), same_rows=False)
+    return Column(column.code, frame=top, name=column.name, dtype=column.dtype, refs=column.refs,
+                  versions=column.versions)
+
+
+@rule("frame.reset_index")
+def reset_index(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.reset_index() / reset_index(drop=True).
+
+    Handles: after a groupby the keys are already columns in Polars; drop=True makes fresh
+    labels, which is nothing to do in Polars.
+    Caveats: the old row labels of a filtered or sorted frame (I02) are a TODO.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "drop", "names")
+    drop = call.const("drop", None, False)
+    if frame.index:
+        if drop:
+            code = frame.code.method("drop", *frame.index)
+            columns = tuple(c for c in frame.columns or () if c not in frame.index) or None
+            return derive(frame, code, same_rows=True, index=(), labels_intact=True, columns=columns)
+        return derive(frame, frame.code, same_rows=True, index=(), labels_intact=True)
+    if drop:
+        return derive(frame, frame.code, same_rows=True, labels_intact=True)
+    if not frame.labels_intact:
+        raise Unsupported("the old row labels of a filtered or reordered frame become a column "
+                          "(with_row_index where the frame was made)")
+    code = frame.code.method("with_row_index", "index").method(
+        "with_columns", emit.col("index").method("cast", emit.atom("pl.Int64")))
+    columns = ("index", *frame.columns) if frame.columns is not None else None
+    return derive(frame, code, same_rows=True, labels_intact=True, columns=columns)
+
+
+@rule("series.reset_index")
+def series_reset_index(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.reset_index() -> a frame of the index columns and the values (name= renames them)."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "name", "drop")
+    from porter.translate.handover import series_frame
+    name = call.const("name", None, None)
+    if call.const("drop", None, False):
+        return Column(column.code, frame=derive(column.frame, column.frame.code, same_rows=True,
+                                                 labels_intact=True), name=column.name,
+                      dtype=column.dtype, refs=column.refs, versions=column.versions)
+    if not column.frame.index:
+        raise Unsupported("the row labels of a Series become a column")
+    value_name = name if name is not None else (column.name if column.name is not None else "0")
+    renamed = Column(column.code, frame=column.frame, name=value_name, dtype=column.dtype,
+                     null_is_false=column.null_is_false)
+    if column.name is None and name is None:
+        ctx.lower("the values column is named \"0\" (the integer 0 in pandas)", 0.95)
+    code = series_frame(renamed)
+    return Frame(code, columns=(*column.frame.index, value_name), labels_intact=True)
+
+
+@rule("series.isin")
+def isin(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.isin([...]) -> .is_in([...]).
+
+    Handles: a missing value is not in the list (False in pandas, null in Polars, filled where
+    it matters); a missing value in the list matches missing values (nulls_equal=True).
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    values = call.arg("values", 0)
+    if isinstance(values, Opaque) and isinstance(values.const, (list, tuple, set)):
+        items = list(values.const)
+        has_missing = any(v is None or v != v for v in items)
+        kwargs = {"nulls_equal": True} if has_missing else {}
+        code = column.code.method("is_in", [v for v in items], **kwargs)
+        return derived_column(column, code, dtype="bool", null_is_false=not has_missing)
+    if isinstance(values, Opaque) and not values.is_const:
+        ctx.lower(f"`{values.code.text}` is taken to be a list of values", 0.85)
+        return derived_column(column, column.code.method("is_in", values.code), dtype="bool",
+                              null_is_false=True)
+    raise Unsupported("isin with a Series or a frame")
+
+
+@rule("series.between")
+def between(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.between(a, b, inclusive) -> .is_between(a, b, closed=...)."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "left", "right", "inclusive", positional=2)
+    left = ctx.expr(call.arg("left", 0), column.frame)
+    right = ctx.expr(call.arg("right", 1), column.frame)
+    inclusive = call.const("inclusive", None, "both")
+    closed = {"both": "both", "neither": "none", "left": "left", "right": "right"}.get(inclusive)
+    if closed is None:
+        raise Unsupported(f"inclusive={inclusive!r}")
+    kwargs = {"closed": closed} if closed != "both" else {}
+    return derived_column(column, column.code.method("is_between", left, right, **kwargs),
+                          dtype="bool", null_is_false=True)
+
+
+def _replace_args(call: PandasCall) -> tuple[object, object] | dict[Any, Any]:
+    to_replace = call.const("to_replace", 0)
+    if isinstance(to_replace, dict):
+        if call.has("value", 1):
+            raise Unsupported("nested replacement dicts")
+        return to_replace
+    value = call.const("value", 1)
+    return to_replace, value
+
+
+def _replacement(code: Code, args: tuple[object, object] | dict[Any, Any]) -> Code:
+    if isinstance(args, dict):
+        return code.method("replace", args)
+    old, new = args
+    return code.method("replace", old, new)
+
+
+def _types(args: tuple[object, object] | dict[Any, Any]) -> tuple[set[type], set[type]]:
+    pairs = list(args.items()) if isinstance(args, dict) else [args]
+    old = {type(k) for k, _ in pairs if k is not None}
+    new = {type(v) for _, v in pairs if v is not None}
+    return old, new
+
+
+@rule("series.replace")
+def series_replace(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.replace(a, b) / s.replace({a: b}) -> .replace(...).
+
+    Handles: values not in the mapping are kept, like pandas. Replacing with None makes a
+    missing value in both.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "to_replace", "value", positional=2)
+    args = _replace_args(call)
+    old, new = _types(args)
+    if old and new and not (old | new) <= {int, float} and old != new:
+        raise Unsupported("replacing values with values of another type changes the column type")
+    return derived_column(column, _replacement(column.code, args), dtype=column.dtype)
+
+
+@rule("frame.replace")
+def frame_replace(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.replace(a, b) -> .with_columns(<columns of a's type>.replace(a, b)).
+
+    Handles: pandas replaces in every column where the value occurs; porter replaces in the
+    columns whose type can hold it (text values in text columns, numbers in numeric columns).
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "to_replace", "value", positional=2)
+    args = _replace_args(call)
+    old, new = _types(args)
+    if not old or len(old) > 1 or (new and not (old | new) <= {int, float} and old != new):
+        raise Unsupported("replacing values of mixed types across a frame")
+    selector = "pl.selectors.string()" if old == {str} else "pl.selectors.numeric()"
+    code = frame.code.method("with_columns", _replacement(emit.atom(selector), args))
+    return derive(frame, code, same_rows=True)

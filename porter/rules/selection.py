@@ -1,0 +1,351 @@
+"""Selecting columns and rows: df["a"], df.a, df[["a", "b"]], df[mask], loc, iloc, head, tail,
+query, and what a frame knows about itself (columns, shape, dtypes, len)."""
+
+from __future__ import annotations
+
+import re
+import libcst as cst
+
+from porter.emit import code as emit
+from porter.emit.code import Code
+from porter.rules import rule
+from porter.translate.context import (
+    PandasCall, RuleContext, Unsupported, column_of, derive, select_columns,
+)
+from porter.translate.values import Column, Frame, Opaque, Scalar, Value
+
+
+def frame_of(call: PandasCall) -> Frame:
+    assert isinstance(call.receiver, Frame)
+    return call.receiver
+
+
+def column_by_key(frame: Frame, key: Value, ctx: RuleContext) -> Column:
+    """`frame[key]` for a key naming one column."""
+    if isinstance(key, Opaque) and isinstance(key.const, str):
+        if frame.columns is not None and key.const not in frame.columns:
+            raise Unsupported(f"column {key.const!r} is not in the frame (pandas raises KeyError)")
+        name = key.const
+        code = emit.col(key.code if key.code.text != emit.lit(name).text else name)
+        return column_of(frame, name, code)
+    if isinstance(key, Opaque) and not key.is_const and key.node is None or (
+            isinstance(key, Opaque) and isinstance(key.node, cst.Name)):
+        if key.pytype != "str":
+            ctx.lower(f"`{key.code.text}` is taken to hold one column name", 0.85)
+        return Column(emit.col(key.code), frame=frame, name=None)
+    raise Unsupported(f"a key of this kind ({key.code.text}) selects by index or position")
+
+
+@rule("frame.getitem.column")
+def getitem_column(call: PandasCall, ctx: RuleContext) -> Value:
+    """df["a"] -> pl.col("a") inside the frame's expressions."""
+    return column_by_key(frame_of(call), call.args[0], ctx)
+
+
+@rule("frame.getattr")
+def getattr_column(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.a -> pl.col("a")."""
+    frame = frame_of(call)
+    if frame.columns is not None and call.name not in frame.columns:
+        raise Unsupported(f"{call.name!r} is neither a column nor a DataFrame attribute porter knows")
+    return column_of(frame, call.name)
+
+
+@rule("frame.getitem.columns")
+def getitem_columns(call: PandasCall, ctx: RuleContext) -> Value:
+    """df[["a", "b"]] -> .select("a", "b")."""
+    frame = frame_of(call)
+    key = call.args[0]
+    names = key.const  # type: ignore[union-attr]
+    if not all(isinstance(n, str) for n in names):
+        raise Unsupported("columns selected by something other than names")
+    args: list[object] = [key.code] if not _is_literal(key) else list(names)
+    return select_columns(frame, frame.code.method("select", *args), names)
+
+
+def _is_literal(value: Value) -> bool:
+    return isinstance(value, Opaque) and value.node is not None and not isinstance(value.node, cst.Name)
+
+
+@rule("frame.getitem.mask")
+def getitem_mask(call: PandasCall, ctx: RuleContext) -> Value:
+    """df[mask] -> .filter(mask).
+
+    Handles: rows where the mask met a missing value are dropped, as pandas' False drops them.
+    """
+    frame = frame_of(call)
+    mask = call.args[0]
+    assert isinstance(mask, Column)
+    return derive(frame, frame.code.method("filter", ctx.expr(mask, frame)), same_rows=False)
+
+
+@rule("frame.getitem.slice", "frame.iloc")
+def positional_rows(call: PandasCall, ctx: RuleContext) -> Value:
+    """df[a:b] and df.iloc[a:b] (and df.iloc[a:b, :]) -> .slice / .head / .tail."""
+    frame = frame_of(call)
+    keys = call.args
+    if len(keys) == 2:
+        if not (isinstance(keys[1], Opaque) and keys[1].const == slice(None)):
+            raise Unsupported("iloc with column positions: select columns by name")
+    key = keys[0]
+    if not (isinstance(key, Opaque) and isinstance(key.const, slice)):
+        raise Unsupported("iloc with a single position returns a row; porter ports row slices")
+    return slice_rows(frame, key.const)
+
+
+def slice_rows(frame: Frame, s: slice) -> Frame:
+    start, stop, step = s.start, s.stop, s.step
+    if step not in (None, 1) or any(v is not None and not isinstance(v, int) for v in (start, stop)):
+        raise Unsupported("slices with a step or computed bounds")
+    intact = frame.labels_intact and (start is None or start == 0)
+    if start is None or start == 0:
+        if stop is None:
+            return frame
+        if stop < 0:
+            raise Unsupported("a slice ending before the last rows has no lazy form without the length")
+        return derive(frame, frame.code.method("head", stop), same_rows=False, labels_intact=intact)
+    if start < 0 and stop is None:
+        return derive(frame, frame.code.method("tail", -start), same_rows=False)
+    if start > 0 and stop is None:
+        return derive(frame, frame.code.method("slice", start), same_rows=False)
+    if start > 0 and stop is not None and stop >= start:
+        return derive(frame, frame.code.method("slice", start, stop - start), same_rows=False)
+    raise Unsupported("negative slice bounds need the frame's length")
+
+
+@rule("frame.loc")
+def loc(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.loc[mask, cols] -> .filter(mask).select(cols); df.loc[:, "a"] -> a column.
+
+    Caveats: row labels (df.loc[3], df.loc["a":"c"]) are TODOs: the index is not data in Polars.
+    """
+    frame = frame_of(call)
+    rows = call.args[0]
+    cols = call.args[1] if len(call.args) > 1 else None
+    if isinstance(rows, Column):
+        frame = derive(frame, frame.code.method("filter", ctx.expr(rows, frame)), same_rows=False)
+    elif not (isinstance(rows, Opaque) and rows.const == slice(None)):
+        raise Unsupported("rows chosen by index label: the index is not data in Polars")
+    if cols is None or (isinstance(cols, Opaque) and cols.const == slice(None)):
+        return frame
+    if isinstance(cols, Opaque) and isinstance(cols.const, str):
+        return column_by_key(frame, cols, ctx)
+    if isinstance(cols, Opaque) and isinstance(cols.const, list) and all(isinstance(c, str) for c in cols.const):
+        return select_columns(frame, frame.code.method("select", *cols.const), cols.const)
+    raise Unsupported("columns chosen by something other than names")
+
+
+@rule("frame.head")
+def head(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.head(n) -> .head(n)."""
+    ctx.reject_unknown(call, "n", positional=1)
+    frame = frame_of(call)
+    n = call.const("n", 0, 5)
+    if not isinstance(n, int) or n < 0:
+        raise Unsupported("head with a negative or computed count needs the frame's length")
+    return derive(frame, frame.code.method("head", n), same_rows=False, labels_intact=frame.labels_intact)
+
+
+@rule("frame.tail")
+def tail(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.tail(n) -> .tail(n)."""
+    ctx.reject_unknown(call, "n", positional=1)
+    frame = frame_of(call)
+    n = call.const("n", 0, 5)
+    if not isinstance(n, int) or n < 0:
+        raise Unsupported("tail with a negative or computed count needs the frame's length")
+    return derive(frame, frame.code.method("tail", n), same_rows=False)
+
+
+@rule("series.head", "series.tail")
+def series_head(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.head(n) -> the column of frame.head(n)."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    n = call.const("n", 0, 5)
+    if not isinstance(n, int) or n < 0:
+        raise Unsupported("a negative or computed count needs the frame's length")
+    frame = column.frame
+    rows = derive(frame, frame.code.method(call.name, n), same_rows=False,
+                  labels_intact=frame.labels_intact and call.name == "head")
+    return Column(column.code, frame=rows, name=column.name, dtype=column.dtype,
+                  null_is_false=column.null_is_false, refs=column.refs, versions=column.versions)
+
+
+@rule("frame.copy", "series.copy")
+def copy(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.copy() -> the same LazyFrame (Polars values are never changed in place)."""
+    assert call.receiver is not None
+    return call.receiver
+
+
+@rule("frame.columns")
+def columns(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.columns -> .collect_schema().names() (no data is read)."""
+    return Scalar(frame_of(call).code.method("collect_schema").method("names"), pytype="list[str]")
+
+
+@rule("frame.dtypes")
+def dtypes(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.dtypes -> .collect_schema() (no data is read); the dtype names are Polars'."""
+    return Scalar(frame_of(call).code.method("collect_schema"), pytype="schema")
+
+
+def row_count(frame: Frame) -> Code:
+    return frame.code.method("select", emit.pl("len")).method("collect").method("item")
+
+
+@rule("frame.shape")
+def shape(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.shape -> (rows, columns): rows counted by a query, columns from the schema."""
+    frame = frame_of(call)
+    width = emit.call("len", frame.code.method("collect_schema"))
+    return Scalar(emit.Code(f"({row_count(frame).text}, {width.text})"), pytype="tuple")
+
+
+@rule("builtin.len")
+def length(call: PandasCall, ctx: RuleContext) -> Value:
+    """len(df) / len(s) -> .select(pl.len()).collect().item()."""
+    receiver = call.receiver
+    if isinstance(receiver, Column):
+        return Scalar(row_count(receiver.frame), pytype="int")
+    if isinstance(receiver, Frame):
+        return Scalar(row_count(receiver), pytype="int")
+    raise Unsupported("len of this value")
+
+
+@rule("frame.empty")
+def empty(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.empty -> a row count compared with 0."""
+    return Scalar(emit.binop(row_count(frame_of(call)), "==", 0), pytype="bool")
+
+
+@rule("series.getitem")
+def series_getitem(call: PandasCall, ctx: RuleContext) -> Value:
+    """s[mask] -> the column of frame.filter(mask)."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    key = call.args[0]
+    if not isinstance(key, Column):
+        raise Unsupported("a Series indexed by label or position")
+    frame = column.frame
+    filtered = derive(frame, frame.code.method("filter", ctx.expr(key, frame)), same_rows=False)
+    return Column(ctx.expr(column, frame), frame=filtered, name=column.name, dtype=column.dtype,
+                  refs=column.refs, versions=column.versions)
+
+
+# -- query ----------------------------------------------------------------------------------
+
+_QUERY_NAME = re.compile(r"`([^`]+)`")
+
+
+@rule("frame.query")
+def query(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.query("kg > 10 and grade == 'A'") -> .filter(...) built from the same expression.
+
+    Handles: `and`/`or`/`not`, comparisons (chained ones too), `in`/`not in` lists, @variables
+    and backquoted names; missing values compare as pandas compares them.
+    """
+    frame = frame_of(call)
+    ctx.reject_unknown(call, "expr", positional=1)
+    text = call.const("expr", 0)
+    mask = query_mask(text, frame, ctx)
+    return derive(frame, frame.code.method("filter", mask), same_rows=False)
+
+
+def query_mask(text: str, frame: Frame, ctx: RuleContext) -> Code:
+    try:
+        tree = cst.parse_expression(_prepare_query(text))
+    except cst.ParserSyntaxError:
+        raise Unsupported("the query string is not a Python expression porter can read") from None
+    return _QueryBuilder(frame, ctx).build(tree)
+
+
+def _prepare_query(text: str) -> str:
+    text = _QUERY_NAME.sub(lambda m: f"__col__{m.group(1).encode().hex()}", text)
+    return re.sub(r"@([A-Za-z_]\w*)", r"__var__\1", text)
+
+
+class _QueryBuilder:
+    """Builds the Polars mask for a query string, with pandas' missing-value comparisons."""
+
+    def __init__(self, frame: Frame, ctx: RuleContext) -> None:
+        self.frame = frame
+        self.ctx = ctx
+
+    def build(self, node: cst.BaseExpression) -> Code:
+        code, _ = self.boolean(node)
+        return code
+
+    def boolean(self, node: cst.BaseExpression) -> tuple[Code, bool]:
+        """(expression, whether null stands for pandas' False)"""
+        if isinstance(node, cst.BooleanOperation):
+            left, lnull = self.boolean(node.left)
+            right, rnull = self.boolean(node.right)
+            op = "&" if isinstance(node.operator, cst.And) else "|"
+            return emit.binop(left, op, right), lnull or rnull
+        if isinstance(node, cst.UnaryOperation) and isinstance(node.operator, (cst.Not, cst.BitInvert)):
+            inner, null = self.boolean(node.expression)
+            if null:
+                inner = inner.method("fill_null", False)
+            return emit.unary("~", inner), False
+        if isinstance(node, cst.BinaryOperation) and isinstance(node.operator, (cst.BitAnd, cst.BitOr)):
+            left, lnull = self.boolean(node.left)
+            right, rnull = self.boolean(node.right)
+            return emit.binop(left, "&" if isinstance(node.operator, cst.BitAnd) else "|", right), lnull or rnull
+        if isinstance(node, cst.Comparison):
+            return self.comparison(node)
+        if node.lpar:
+            return self.boolean(node.with_changes(lpar=[], rpar=[]))
+        raise Unsupported("this query expression is not a comparison porter ports")
+
+    def comparison(self, node: cst.Comparison) -> tuple[Code, bool]:
+        parts: list[Code] = []
+        nullable = False
+        left_node = node.left
+        for target in node.comparisons:
+            left = self.operand(left_node)
+            op = cst.Module([]).code_for_node(target.operator).strip()
+            right_node = target.comparator
+            if op in ("in", "not in"):
+                values = self.operand(right_node)
+                code = left.method("is_in", values)
+                if op == "not in":
+                    code = emit.unary("~", code.method("fill_null", False))
+                else:
+                    nullable = True
+            elif op == "!=":
+                code = emit.binop(left, "!=", self.operand(right_node)).method("fill_null", True)
+            else:
+                code = emit.binop(left, op, self.operand(right_node))
+                nullable = True
+            parts.append(code)
+            left_node = right_node
+        result = parts[0]
+        for part in parts[1:]:
+            result = emit.binop(result, "&", part)
+        return result, nullable
+
+    def operand(self, node: cst.BaseExpression) -> Code:
+        if isinstance(node, cst.Name):
+            if node.value.startswith("__var__"):
+                return emit.atom(node.value[len("__var__"):])
+            if node.value.startswith("__col__"):
+                return emit.col(bytes.fromhex(node.value[len("__col__"):]).decode())
+            if node.value in ("True", "False", "None"):
+                return emit.atom(node.value)
+            if self.frame.columns is not None and node.value not in self.frame.columns:
+                raise Unsupported(f"{node.value!r} in the query is not a column")
+            return emit.col(node.value)
+        if isinstance(node, (cst.SimpleString, cst.Integer, cst.Float)):
+            return emit.lit(node.evaluated_value)
+        if isinstance(node, (cst.List, cst.Tuple)):
+            items = [self.operand(e.value) for e in node.elements]
+            return emit.atom("[" + ", ".join(i.text for i in items) + "]")
+        if isinstance(node, cst.BinaryOperation) and not isinstance(node.operator, (cst.BitAnd, cst.BitOr)):
+            op = cst.Module([]).code_for_node(node.operator).strip()
+            return emit.binop(self.operand(node.left), op, self.operand(node.right))
+        if isinstance(node, cst.UnaryOperation) and isinstance(node.operator, cst.Minus):
+            return emit.unary("-", self.operand(node.expression))
+        raise Unsupported("a query operand porter does not port")
+

@@ -1,0 +1,221 @@
+"""What a rule receives: the recognised pandas call and a context to answer with."""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from dataclasses import dataclass, field, replace
+from typing import Any
+
+import libcst as cst
+
+from porter.emit import code as emit
+from porter.emit.code import Code
+from porter.model import MappingEntry
+from porter.translate.values import (
+    MISSING, Column, Frame, Grouped, Opaque, PandasValue, Scalar, Value, fresh_token,
+)
+
+
+class Unsupported(Exception):
+    """Raised by a rule (through ctx.todo) when it cannot port this use faithfully."""
+
+    def __init__(self, reason: str) -> None:
+        super().__init__(reason)
+        self.reason = reason
+
+
+class NotLiteral(Unsupported):
+    pass
+
+
+@dataclass(frozen=True)
+class PandasCall:
+    """A call (or attribute, or subscript) on a pandas value, with its evaluated arguments."""
+
+    receiver: Value | None
+    name: str
+    args: tuple[Value, ...] = ()
+    kwargs: dict[str, Value] = field(default_factory=dict)
+    node: cst.CSTNode | None = None
+
+    def has(self, name: str, position: int | None = None) -> bool:
+        return name in self.kwargs or (position is not None and position < len(self.args))
+
+    def arg(self, name: str, position: int | None = None, default: Any = MISSING) -> Value | Any:
+        if name in self.kwargs:
+            return self.kwargs[name]
+        if position is not None and position < len(self.args):
+            return self.args[position]
+        if default is MISSING:
+            raise Unsupported(f"`{name}` is required here")
+        return default
+
+    def const(self, name: str, position: int | None = None, default: Any = MISSING) -> Any:
+        """The argument's literal value; a TODO when it is computed at run time."""
+        if not self.has(name, position):
+            if default is MISSING:
+                raise Unsupported(f"`{name}` is required here")
+            return default
+        value = self.arg(name, position)
+        if isinstance(value, Opaque) and value.is_const:
+            return value.const
+        raise NotLiteral(f"`{name}` is computed at run time; porter needs it written out")
+
+    def unknown_args(self, *known: str, positional: int = 0) -> list[str]:
+        """Arguments a rule does not handle (keyword names, or `#n` for positions)."""
+        extra = [k for k in self.kwargs if k not in known]
+        extra += [f"#{i + 1}" for i in range(positional, len(self.args))]
+        return extra
+
+
+@dataclass
+class RuleContext:
+    key: str
+    entry: MappingEntry
+    confidence: float
+    reasons: list[str] = field(default_factory=list)
+    handover: bool = False
+    schema_lookup: Any = None  # (reader, path, options) -> {column: dtype} from --data, or None
+
+    def input_schema(self, reader: str, path: object, options: dict[str, Any]) -> dict[str, str] | None:
+        """Column types of an input file, when the user gave --data (no data is loaded)."""
+        if self.schema_lookup is None or not isinstance(path, str):
+            return None
+        return self.schema_lookup(reader, path, options)
+
+    # -- deciding -----------------------------------------------------------------------------
+    def lower(self, reason: str, to: float) -> None:
+        """Lower this site's confidence, saying why."""
+        if to < self.confidence:
+            self.confidence = to
+        self.reasons.append(reason)
+
+    def todo(self, reason: str) -> Unsupported:
+        return Unsupported(reason)
+
+    def reject_unknown(self, call: PandasCall, *known: str, positional: int = 0) -> None:
+        extra = call.unknown_args(*known, positional=positional)
+        if extra:
+            raise Unsupported(f"argument {', '.join(extra)} is not handled by porter yet")
+
+    # -- values -------------------------------------------------------------------------------
+    def expr(self, value: Value, frame: Frame) -> Code:
+        """`value` as a Polars expression evaluated inside `frame`."""
+        return expr_in(value, frame)
+
+    def bool_expr(self, value: Value, frame: Frame) -> Code:
+        """A boolean column used as a value: pandas has False where the comparison met a
+        missing value, Polars has null."""
+        code = expr_in(value, frame)
+        if isinstance(value, Column) and value.null_is_false:
+            return code.method("fill_null", False)
+        return code
+
+
+def expr_in(value: Value, frame: Frame) -> Code:
+    if isinstance(value, Column):
+        check_same_rows(value, frame)
+        return value.code
+    if isinstance(value, Scalar):
+        if value.agg is not None and value.agg.frame.rows == frame.rows:
+            return value.agg.code
+        return value.code
+    if isinstance(value, Opaque):
+        if value.is_const:
+            return emit.as_expr(value.const)
+        return value.code
+    if isinstance(value, PandasValue):
+        raise Unsupported("a value computed by pandas is mixed into a Polars expression")
+    raise Unsupported(f"a {type(value).__name__.lower()} cannot be used as a column expression here")
+
+
+def check_same_rows(column: Column, frame: Frame) -> None:
+    if column.frame.rows != frame.rows:
+        raise Unsupported(
+            "the Series comes from another frame (or from before rows were filtered or "
+            "reordered): pandas aligns it on the index, which has no expression form"
+        )
+    for name, version in column.versions:
+        if frame.version(name) != version:
+            raise Unsupported(
+                f"column {name!r} was overwritten after this Series was taken from it"
+            )
+
+
+def derive(frame: Frame, code: Code, *, same_rows: bool, **changes: Any) -> Frame:
+    """A frame computed from `frame`: same rows (new columns only) or new rows."""
+    if not same_rows:
+        changes.setdefault("rows", fresh_token())
+        changes.setdefault("labels_intact", False)
+    return replace(frame, code=code, sites=(), **changes)
+
+
+def with_column_updates(frame: Frame, code: Code, updates: dict[str, str | None]) -> Frame:
+    """`frame` after with_columns: `updates` maps each written column to its dtype."""
+    columns = frame.columns
+    if columns is not None:
+        columns = columns + tuple(c for c in updates if c not in columns)
+    dtypes = dict(frame.dtypes)
+    versions = dict(frame.versions)
+    for name, dtype in updates.items():
+        if dtype is None:
+            dtypes.pop(name, None)
+        else:
+            dtypes[name] = dtype
+        versions[name] = fresh_token()
+    return replace(frame, code=code, sites=(), columns=columns,
+                   dtypes=tuple(dtypes.items()), versions=tuple(versions.items()))
+
+
+def select_columns(frame: Frame, code: Code, names: Sequence[str], *, same_rows: bool = True) -> Frame:
+    dtypes = {k: v for k, v in frame.dtypes if k in names}
+    result = derive(frame, code, same_rows=same_rows, columns=tuple(names),
+                    dtypes=tuple(dtypes.items()))
+    return replace(result, index=tuple(i for i in frame.index if i in names))
+
+
+def column_of(frame: Frame, name: str, code: Code | None = None) -> Column:
+    return Column(
+        code if code is not None else emit.col(name),
+        frame=frame,
+        name=name,
+        dtype=frame.dtype(name),
+        refs=frozenset({name}),
+        versions=((name, frame.version(name)),),
+    )
+
+
+def derived_column(base: Column, code: Code, *, dtype: str | None = None,
+                   null_is_false: bool = False, name: Any = MISSING,
+                   others: Sequence[Value] = ()) -> Column:
+    """A column computed from `base` (and `others` of the same frame)."""
+    refs = set(base.refs)
+    versions = dict(base.versions)
+    for other in others:
+        if isinstance(other, Column):
+            refs |= other.refs
+            versions.update(other.versions)
+    return Column(
+        code,
+        frame=base.frame,
+        name=base.name if name is MISSING else name,
+        dtype=dtype,
+        null_is_false=null_is_false,
+        refs=frozenset(refs),
+        versions=tuple(versions.items()),
+    )
+
+
+def grouping_code(grouped: Grouped) -> Code:
+    """The LazyGroupBy for a pandas groupby.
+
+    pandas drops rows whose key is missing (dropna=True), so they are dropped before grouping;
+    with sort=False pandas keeps keys in order of first appearance (maintain_order=True).
+    """
+    if grouped.prepared:
+        return grouped.code
+    frame = grouped.frame.code
+    if grouped.dropna:
+        frame = frame.method("drop_nulls", emit.names_arg(grouped.keys))
+    options = {} if grouped.sort else {"maintain_order": True}
+    return frame.method("group_by", emit.names_arg(grouped.keys), **options)

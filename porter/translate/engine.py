@@ -1,0 +1,523 @@
+"""Statements: walk the script in order, keep track of what every name holds, and write the
+rewritten statements (with TODO markers) back into the module."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field, replace
+from typing import Any
+
+import libcst as cst
+from libcst.metadata import MetadataWrapper, ParentNodeProvider, PositionProvider
+
+from porter.analysis.imports import ImportFacts, collect_imports
+from porter.emit import code as emit
+from porter.emit.code import Code
+from porter.model import SiteDraft
+from porter.translate import imports as import_edits
+from porter.translate.context import PandasCall, grouping_code
+from porter.translate.evaluate import Evaluator, LocalFunction, Services, _is_pandas
+from porter.translate.values import (
+    Column, Frame, Grouped, Module, Opaque, PandasValue, Scalar, Value, fresh_token,
+)
+
+TODO_PREFIX = "# TODO(porter): "
+MAX_COMMENT = 160
+
+
+@dataclass
+class Translation:
+    module: cst.Module
+    sites: list[SiteDraft] = field(default_factory=list)
+
+
+def translate_module(module: cst.Module, services: Services) -> Translation:
+    wrapper = MetadataWrapper(module)
+    positions = wrapper.resolve(PositionProvider)
+    parents = wrapper.resolve(ParentNodeProvider)
+    module = wrapper.module
+    facts = collect_imports(module)
+
+    def position(node: cst.CSTNode) -> tuple[int, int]:
+        pos = positions.get(node)
+        return (pos.start.line, pos.end.line) if pos is not None else (0, 0)
+
+    def inside_from_pandas(node: cst.CSTNode) -> bool:
+        parent = parents.get(node)
+        if isinstance(parent, cst.Arg):
+            call = parents.get(parent)
+            return isinstance(call, cst.Call) and module.code_for_node(call.func) == "pl.from_pandas"
+        return False
+
+    services.code_for = module.code_for_node
+    services.position = position
+    services.inside_from_pandas = inside_from_pandas
+    functions = _discover_functions(module)
+    services.functions = {f.name: f for f in functions}
+
+    # Which parameters of the script's own functions take frames is learnt from the calls:
+    # run the pass until that stops changing (twice is almost always enough).
+    for _ in range(3):
+        services.call_sites = {}
+        walker = _Walker(services, facts, emit_code=False)
+        walker.block(module.body, _initial_env(facts), module.default_indent, "")
+        updated = _learn_functions(services, walker.returns)
+        if updated == services.functions:
+            break
+        services.functions = updated
+
+    services.call_sites = {}
+    walker = _Walker(services, facts, emit_code=True)
+    body, _ = walker.block(module.body, _initial_env(facts), module.default_indent, "")
+    new_module = module.with_changes(body=body)
+    if walker.sites:
+        new_module = import_edits.fix_imports(new_module, facts)
+    return Translation(new_module, _unique(walker.sites))
+
+
+def _initial_env(facts: ImportFacts) -> dict[str, Value]:
+    return {name: Module(emit.atom(name), qualname=qual) for name, qual in facts.names.items()}
+
+
+def _unique(sites: list[SiteDraft]) -> list[SiteDraft]:
+    seen: set[SiteDraft] = set()
+    out = []
+    for site in sites:
+        if site not in seen:
+            seen.add(site)
+            out.append(site)
+    return sorted(out, key=lambda s: (s.line, s.end_line))
+
+
+# -- the script's own functions -------------------------------------------------------------
+
+def _discover_functions(module: cst.Module) -> list[LocalFunction]:
+    found = []
+    for stmt in module.body:
+        if isinstance(stmt, cst.FunctionDef) and not stmt.decorators:
+            params = stmt.params
+            if params.star_arg not in (None, cst.MaybeSentinel.DEFAULT) or params.star_kwarg:
+                continue
+            names = tuple(p.name.value for p in (*params.posonly_params, *params.params))
+            found.append(LocalFunction(stmt.name.value, names, frozenset(), None))
+    return found
+
+
+def _learn_functions(services: Services, returns: dict[str, list[Value]]) -> dict[str, LocalFunction]:
+    updated = {}
+    for name, function in services.functions.items():
+        calls = services.call_sites.get(name, [])
+        frame_params = set()
+        for i, param in enumerate(function.params):
+            kinds = [c[i] if i < len(c) else None for c in calls]
+            if kinds and all(isinstance(k, Frame) for k in kinds):
+                frame_params.add(param)
+        returned = returns.get(name, [])
+        template: Value | None = None
+        if returned and all(isinstance(r, Frame) for r in returned):
+            template = Frame(Code(""), rows=fresh_token(), labels_intact=False)
+        elif returned and all(isinstance(r, (Column, Scalar)) for r in returned):
+            template = returned[0]
+        updated[name] = replace(function, frame_params=frozenset(frame_params), returns=template)
+    # keep templates stable between passes so the fixpoint check can succeed
+    for name, function in updated.items():
+        old = services.functions[name]
+        if isinstance(old.returns, Frame) and isinstance(function.returns, Frame):
+            updated[name] = replace(function, returns=old.returns)
+    return updated
+
+
+# -- the walk over statements ---------------------------------------------------------------
+
+class _Walker:
+    def __init__(self, services: Services, facts: ImportFacts, emit_code: bool) -> None:
+        self.services = services
+        self.facts = facts
+        self.emit_code = emit_code
+        self.sites: list[SiteDraft] = []
+        self.returns: dict[str, list[Value]] = {}
+        self.function: str | None = None
+
+    # blocks ---------------------------------------------------------------------------------
+    def block(self, body: Any, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
+        out: list[Any] = []
+        for stmt in body:
+            new, env = self.statement(stmt, env, unit, indent)
+            out.extend(new)
+        return out, env
+
+    def indented(self, block: cst.BaseSuite, env: dict[str, Value], unit: str,
+                 indent: str) -> tuple[cst.BaseSuite, dict[str, Value]]:
+        if isinstance(block, cst.IndentedBlock):
+            inner = indent + (block.indent if block.indent is not None else unit)
+            body, env = self.block(block.body, env, unit, inner)
+            return block.with_changes(body=body), env
+        body, env = self.block([cst.SimpleStatementLine(body=list(block.body))], env, unit, indent)
+        if len(body) == 1 and isinstance(body[0], cst.SimpleStatementLine):
+            return block.with_changes(body=body[0].body), env
+        return cst.IndentedBlock(body=body), env
+
+    def statement(self, stmt: Any, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
+        env = dict(env)
+        if isinstance(stmt, cst.SimpleStatementLine):
+            return self.simple_line(stmt, env, indent), env
+        if isinstance(stmt, cst.FunctionDef):
+            return [self.function_def(stmt, env, unit, indent)], env
+        if isinstance(stmt, cst.If):
+            return self.if_stmt(stmt, env, unit, indent)
+        if isinstance(stmt, (cst.For, cst.While)):
+            return self.loop(stmt, env, unit, indent)
+        if isinstance(stmt, cst.With):
+            items = [item.with_changes(item=self.header(item.item, env, item)) for item in stmt.items]
+            body, env = self.indented(stmt.body, env, unit, indent)
+            return [stmt.with_changes(items=items, body=body)], env
+        if isinstance(stmt, cst.Try):
+            body, env = self.indented(stmt.body, env, unit, indent)
+            handlers = []
+            for handler in stmt.handlers:
+                h_body, env = self.indented(handler.body, env, unit, indent)
+                handlers.append(handler.with_changes(body=h_body))
+            changes: dict[str, Any] = {"body": body, "handlers": handlers}
+            for part in ("orelse", "finalbody"):
+                clause = getattr(stmt, part)
+                if clause is not None:
+                    c_body, env = self.indented(clause.body, env, unit, indent)
+                    changes[part] = clause.with_changes(body=c_body)
+            return [stmt.with_changes(**changes)], env
+        return [stmt], env
+
+    def function_def(self, stmt: cst.FunctionDef, env: dict[str, Value], unit: str, indent: str) -> Any:
+        function = self.services.functions.get(stmt.name.value)
+        local = dict(env)
+        for param in (*stmt.params.posonly_params, *stmt.params.params, *stmt.params.kwonly_params):
+            name = param.name.value
+            if function is not None and name in function.frame_params:
+                local[name] = Frame(emit.atom(name), labels_intact=False)
+            else:
+                local.pop(name, None)
+        outer = self.function
+        self.function = stmt.name.value
+        body, _ = self.indented(stmt.body, local, unit, indent)
+        self.function = outer
+        return stmt.with_changes(body=body)
+
+    def if_stmt(self, stmt: cst.If, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
+        test = self.header(stmt.test, env, stmt)
+        body, env_body = self.indented(stmt.body, env, unit, indent)
+        orelse = stmt.orelse
+        env_else = env
+        if isinstance(orelse, cst.If):
+            new_else, env_else = self.if_stmt(orelse, env, unit, indent)
+            orelse = new_else[0]
+        elif isinstance(orelse, cst.Else):
+            else_body, env_else = self.indented(orelse.body, env, unit, indent)
+            orelse = orelse.with_changes(body=else_body)
+        return [stmt.with_changes(test=test, body=body, orelse=orelse)], _merge(env_body, env_else)
+
+    def loop(self, stmt: cst.For | cst.While, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
+        changes: dict[str, Any] = {}
+        if isinstance(stmt, cst.For):
+            iter_value = self.evaluate(stmt.iter, env)
+            changes["iter"] = self.header(stmt.iter, env, stmt, iter_value)
+            loop_env = dict(env)
+            pytype = "str" if _iterates_names(iter_value) else None
+            for name in _target_names(stmt.target):
+                loop_env[name] = Opaque(emit.atom(name), pytype=pytype)
+        else:
+            changes["test"] = self.header(stmt.test, env, stmt)
+            loop_env = dict(env)
+        # A second round through the body sees what the first round changed.
+        emit_code, self.emit_code = self.emit_code, False
+        saved = len(self.sites)
+        _, after = self.indented(stmt.body, loop_env, unit, indent)
+        del self.sites[saved:]
+        self.emit_code = emit_code
+        widened = _merge(loop_env, after)
+        body, after = self.indented(stmt.body, widened, unit, indent)
+        changes["body"] = body
+        if stmt.orelse is not None:
+            else_body, after = self.indented(stmt.orelse.body, after, unit, indent)
+            changes["orelse"] = stmt.orelse.with_changes(body=else_body)
+        return [stmt.with_changes(**changes)], _merge(env, after)
+
+    def header(self, expr: cst.BaseExpression, env: dict[str, Value], owner: cst.CSTNode,
+               value: Value | None = None) -> cst.BaseExpression:
+        if value is None:
+            value = self.evaluate(expr, env)
+        if _is_pandas(value):
+            value = Evaluator(env, self.services).handed_to_unknown(value, expr) \
+                if not isinstance(value, (Frame, Column)) else value
+        self.record(value.sites)
+        text = value.code.text
+        if text == self.services.code_for(expr):
+            return expr
+        return cst.parse_expression(text)
+
+    def evaluate(self, expr: cst.BaseExpression, env: dict[str, Value]) -> Value:
+        return Evaluator(env, self.services).eval(expr)
+
+    def record(self, sites: tuple[SiteDraft, ...]) -> None:
+        self.sites.extend(sites)
+
+    # simple statements ------------------------------------------------------------------------
+    def simple_line(self, line: cst.SimpleStatementLine, env: dict[str, Value], indent: str) -> list[Any]:
+        texts: list[str | None] = []
+        sites: list[SiteDraft] = []
+        for small in line.body:
+            text, new_sites = self.small(small, env, indent)
+            texts.append(text)
+            sites += new_sites
+        self.record(tuple(sites))
+        todo_lines = _todo_comments(sites, line)
+        if all(t is None for t in texts) and not todo_lines:
+            return [line]
+        if all(t is None for t in texts):
+            return [line.with_changes(leading_lines=[*line.leading_lines, *todo_lines])]
+        parts = [t if t is not None else self.services.code_for(s).strip()
+                 for t, s in zip(texts, line.body)]
+        new_lines = []
+        for i, part in enumerate(parts):
+            parsed = cst.parse_statement(part + "\n")
+            assert isinstance(parsed, cst.SimpleStatementLine)
+            if i == 0:
+                parsed = parsed.with_changes(leading_lines=[*line.leading_lines, *todo_lines])
+            if i == len(parts) - 1:
+                parsed = parsed.with_changes(trailing_whitespace=line.trailing_whitespace)
+            new_lines.append(parsed)
+        return new_lines
+
+    def small(self, stmt: cst.BaseSmallStatement, env: dict[str, Value], indent: str) -> tuple[str | None, list[SiteDraft]]:
+        """Rewrite one small statement; None when it stays as written."""
+        evaluator = Evaluator(env, self.services)
+        if isinstance(stmt, cst.Expr):
+            inplace = self.inplace_call(stmt.value, env, evaluator, indent)
+            if inplace is not None:
+                return inplace
+            value = evaluator.eval(stmt.value)
+            return self.unchanged_or(stmt.value, value, indent, prefix="")
+        if isinstance(stmt, (cst.Assign, cst.AnnAssign)):
+            return self.assign(stmt, env, evaluator, indent)
+        if isinstance(stmt, cst.AugAssign):
+            return self.aug_assign(stmt, env, evaluator, indent)
+        if isinstance(stmt, cst.Return) and stmt.value is not None:
+            value = evaluator.eval(stmt.value)
+            if self.function is not None:
+                self.returns.setdefault(self.function, []).append(value)
+            return self.unchanged_or(stmt.value, value, indent, prefix="return ")
+        if isinstance(stmt, cst.Del) and isinstance(stmt.target, cst.Subscript):
+            target = stmt.target
+            frame = evaluator.eval(target.value)
+            if isinstance(frame, Frame) and isinstance(target.value, cst.Name):
+                key = evaluator.eval(_index_of(target))
+                call = PandasCall(frame, "delitem", (key,), node=stmt)
+                value = evaluator.dispatch("frame.delitem", call, stmt)
+                return self.bind(target.value.value, value, env, indent)
+        return None, []
+
+    def unchanged_or(self, node: cst.BaseExpression, value: Value, indent: str, prefix: str) -> tuple[str | None, list[SiteDraft]]:
+        if _is_pandas(value) and not isinstance(value, (Frame, Column)):
+            value = Evaluator({}, self.services).handed_to_unknown(value, node)
+        if value.code.text == self.services.code_for(node):
+            return None, list(value.sites)
+        return emit.layout_chain(value.code, indent, prefix), list(value.sites)
+
+    def inplace_call(self, expr: cst.BaseExpression, env: dict[str, Value], evaluator: Evaluator,
+                     indent: str) -> tuple[str | None, list[SiteDraft]] | None:
+        """`x.method(..., inplace=True)` is `x = x.method(...)`."""
+        if not (isinstance(expr, cst.Call) and isinstance(expr.func, cst.Attribute)):
+            return None
+        inplace = [a for a in expr.args if a.keyword is not None and a.keyword.value == "inplace"]
+        if not inplace or self.services.code_for(inplace[0].value) != "True":
+            return None
+        receiver_node = expr.func.value
+        receiver = evaluator.eval(receiver_node)
+        if not isinstance(receiver, (Frame, Column)):
+            return None
+        args = [a for a in expr.args if a is not inplace[0]]
+        if args:
+            args[-1] = args[-1].with_changes(comma=cst.MaybeSentinel.DEFAULT)
+        call = expr.with_changes(args=args)
+        value = evaluator.eval(call)
+        if isinstance(receiver_node, cst.Name) and isinstance(value, (Frame, PandasValue)):
+            return self.bind(receiver_node.value, value, env, indent)
+        if isinstance(receiver_node, cst.Subscript) and isinstance(value, Column):
+            return self.set_item(receiver_node, value, env, evaluator, indent)
+        return None
+
+    def assign(self, stmt: cst.Assign | cst.AnnAssign, env: dict[str, Value], evaluator: Evaluator,
+               indent: str) -> tuple[str | None, list[SiteDraft]]:
+        if stmt.value is None:
+            return None, []
+        targets = [t.target for t in stmt.targets] if isinstance(stmt, cst.Assign) else [stmt.target]
+        if len(targets) == 1:
+            target = targets[0]
+            if isinstance(target, cst.Name) and isinstance(stmt, cst.Assign):
+                return self.bind(target.value, evaluator.eval(stmt.value), env, indent)
+            if isinstance(target, cst.Subscript):
+                value = evaluator.eval(stmt.value)
+                result = self.set_item(target, value, env, evaluator, indent)
+                if result is not None:
+                    return result
+            if isinstance(target, cst.Attribute):
+                result = self.set_attr(target, stmt.value, env, evaluator, indent)
+                if result is not None:
+                    return result
+        value = evaluator.eval(stmt.value)
+        for target in targets:
+            for name in _target_names(target):
+                env[name] = Opaque(emit.atom(name))
+        if value.code.text == self.services.code_for(stmt.value):
+            return None, list(value.sites)
+        lhs = "".join(f"{self.services.code_for(t)} = " for t in targets)
+        return emit.layout_chain(value.code, indent, lhs), list(value.sites)
+
+    def aug_assign(self, stmt: cst.AugAssign, env: dict[str, Value], evaluator: Evaluator,
+                   indent: str) -> tuple[str | None, list[SiteDraft]]:
+        op = stmt.operator.whitespace_before  # keep libcst happy about unused attributes
+        del op
+        if isinstance(stmt.target, cst.Subscript):
+            operator = {cst.AddAssign: cst.Add(), cst.SubtractAssign: cst.Subtract(),
+                        cst.MultiplyAssign: cst.Multiply(), cst.DivideAssign: cst.Divide()}.get(
+                type(stmt.operator))
+            if operator is not None:
+                expr = cst.BinaryOperation(left=stmt.target, operator=operator, right=stmt.value)
+                value = evaluator.eval(expr)
+                result = self.set_item(stmt.target, value, env, evaluator, indent)
+                if result is not None:
+                    return result
+        value = evaluator.eval(stmt.value)
+        if isinstance(stmt.target, cst.Name):
+            env[stmt.target.value] = Opaque(emit.atom(stmt.target.value))
+        if value.code.text == self.services.code_for(stmt.value):
+            return None, list(value.sites)
+        lhs = f"{self.services.code_for(stmt.target)} {self.services.code_for(stmt.operator).strip()} "
+        return emit.layout_chain(value.code, indent, lhs), list(value.sites)
+
+    def set_item(self, target: cst.Subscript, value: Value, env: dict[str, Value],
+                 evaluator: Evaluator, indent: str) -> tuple[str | None, list[SiteDraft]] | None:
+        owner = target.value
+        if isinstance(owner, cst.Attribute) and owner.attr.value in ("loc", "iloc") \
+                and isinstance(owner.value, cst.Name):
+            frame = evaluator.eval(owner.value)
+            if not isinstance(frame, Frame):
+                return None
+            keys = tuple(evaluator.eval(e.slice.value) if isinstance(e.slice, cst.Index)
+                         else evaluator.eval_slice(e.slice) for e in target.slice)
+            call = PandasCall(frame, f"{owner.attr.value}_setitem", (*keys, value), node=target)
+            result = evaluator.dispatch(f"frame.{owner.attr.value}_setitem", call, target)
+            return self.bind(owner.value.value, result, env, indent)
+        if not isinstance(owner, cst.Name):
+            return None
+        frame = evaluator.eval(owner)
+        if not isinstance(frame, Frame):
+            return None
+        key = evaluator.eval(_index_of(target))
+        call = PandasCall(frame, "setitem", (key, value), node=target)
+        result = evaluator.dispatch("frame.setitem", call, target)
+        return self.bind(owner.value, result, env, indent)
+
+    def set_attr(self, target: cst.Attribute, value_node: cst.BaseExpression, env: dict[str, Value],
+                 evaluator: Evaluator, indent: str) -> tuple[str | None, list[SiteDraft]] | None:
+        if not isinstance(target.value, cst.Name):
+            return None
+        frame = evaluator.eval(target.value)
+        if not isinstance(frame, Frame):
+            return None
+        value = evaluator.eval(value_node)
+        call = PandasCall(frame, target.attr.value, (value,), node=target)
+        result = evaluator.dispatch(f"frame.set_{target.attr.value}", call, target)
+        return self.bind(target.value.value, result, env, indent)
+
+    def bind(self, name: str, value: Value, env: dict[str, Value], indent: str) -> tuple[str | None, list[SiteDraft]]:
+        """`name = value`: remember what the name now holds and write the assignment."""
+        code = value.code
+        if isinstance(value, Frame):
+            env[name] = replace(value, code=emit.atom(name), sites=())
+        elif isinstance(value, Column):
+            frame_name = value.frame.code.text
+            if frame_name in env and isinstance(env[frame_name], Frame) \
+                    and env[frame_name].rows == value.frame.rows:  # type: ignore[union-attr]
+                env[name] = replace(value, code=emit.atom(name), sites=())
+                if value.null_is_false:
+                    code = value.code.method("fill_null", False)
+                    env[name] = replace(env[name], null_is_false=False)  # type: ignore[arg-type]
+            else:
+                from porter.translate.handover import series_frame
+                code = series_frame(value)
+                column = value.name if value.name is not None else "0"
+                frame = Frame(emit.atom(name), columns=(*value.frame.index, column),
+                              index=value.frame.index, labels_intact=value.frame.labels_intact)
+                env[name] = Column(emit.col(column), frame=frame, name=value.name,
+                                   dtype=value.dtype, refs=frozenset({column}))
+        elif isinstance(value, Grouped):
+            code = grouping_code(value)
+            env[name] = replace(value, code=emit.atom(name), prepared=True, sites=())
+        elif isinstance(value, Scalar):
+            env[name] = Scalar(emit.atom(name), pytype=value.pytype)
+        elif isinstance(value, PandasValue):
+            env[name] = PandasValue(emit.atom(name))
+        elif isinstance(value, Opaque):
+            env[name] = Opaque(emit.atom(name), const=value.const, pytype=value.pytype)
+        elif isinstance(value, Module):
+            env[name] = Module(emit.atom(name), qualname=value.qualname)
+        else:
+            code = Evaluator(env, self.services).handed_to_unknown(value, cst.Name(name)).code
+            env[name] = PandasValue(emit.atom(name))
+        return emit.layout_chain(code, indent, f"{name} = "), list(value.sites)
+
+
+def _index_of(target: cst.Subscript) -> cst.BaseExpression:
+    element = target.slice[0].slice
+    return element.value if isinstance(element, cst.Index) else cst.Name("None")
+
+
+def _target_names(target: cst.BaseExpression) -> list[str]:
+    if isinstance(target, cst.Name):
+        return [target.value]
+    if isinstance(target, (cst.Tuple, cst.List)):
+        return [n for e in target.elements for n in _target_names(e.value)]
+    return []
+
+
+def _iterates_names(value: Value) -> bool:
+    if isinstance(value, Opaque) and value.is_const and isinstance(value.const, (list, tuple)):
+        return all(isinstance(v, str) for v in value.const)
+    return isinstance(value, Scalar) and value.pytype == "list[str]"
+
+
+def _merge(a: dict[str, Value], b: dict[str, Value]) -> dict[str, Value]:
+    """What a name holds after two paths join."""
+    merged: dict[str, Value] = {}
+    for name in a.keys() | b.keys():
+        x, y = a.get(name), b.get(name)
+        if x is None or y is None:
+            merged[name] = Opaque(emit.atom(name))
+        elif x == y:
+            merged[name] = x
+        elif isinstance(x, Frame) and isinstance(y, Frame):
+            common = x.columns if x.columns == y.columns else None
+            merged[name] = Frame(emit.atom(name), columns=common,
+                                 dtypes=tuple(set(x.dtypes) & set(y.dtypes)),
+                                 index=x.index if x.index == y.index else (),
+                                 labels_intact=False)
+        elif type(x) is type(y) and isinstance(x, (PandasValue, Scalar, Module)):
+            merged[name] = x
+        else:
+            merged[name] = Opaque(emit.atom(name))
+    return merged
+
+
+def _todo_comments(sites: list[SiteDraft], line: cst.SimpleStatementLine) -> list[cst.EmptyLine]:
+    existing = {el.comment.value for el in line.leading_lines if el.comment is not None}
+    comments = []
+    for site in sites:
+        if site.status != "todo":
+            continue
+        text = TODO_PREFIX + f"{site.key}: {site.message}"
+        text = " ".join(text.split())
+        if len(text) > MAX_COMMENT:
+            text = text[: MAX_COMMENT - 1].rstrip() + "…"
+        if text in existing:
+            continue
+        existing.add(text)
+        comments.append(cst.EmptyLine(comment=cst.Comment(text)))
+    return comments

@@ -1,0 +1,581 @@
+"""Evaluate expressions symbolically: every pandas expression becomes a `Value`.
+
+The evaluator recognises what each name and call *is* (a frame, a column of a frame, a pending
+groupby, the pandas module…), asks the rule registered for the pandas API to decide the Polars
+code, and records a site for every decision. Expressions it does not model are kept as written,
+with any pandas value inside them handed over explicitly.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable, Mapping
+from dataclasses import dataclass, field, replace
+import math
+from typing import Any
+
+import libcst as cst
+
+from porter.analysis import pandas_names
+from porter.emit import code as emit
+from porter.emit.code import ATOM, Code
+from porter.mapping import MappingTable
+from porter.model import MappingEntry, SiteDraft
+from porter.translate import handover
+from porter.translate.context import PandasCall, RuleContext, Unsupported
+from porter.translate.values import (
+    MISSING, Accessor, Column, Frame, Grouped, Indexer, Module, Opaque, PandasValue, Scalar,
+    Value,
+)
+
+BINARY_OPS = {
+    cst.Add: "+", cst.Subtract: "-", cst.Multiply: "*", cst.Divide: "/", cst.FloorDivide: "//",
+    cst.Modulo: "%", cst.Power: "**", cst.BitAnd: "&", cst.BitOr: "|", cst.BitXor: "^",
+    cst.MatrixMultiply: "@", cst.LeftShift: "<<", cst.RightShift: ">>",
+}
+COMPARE_OPS = {
+    cst.Equal: "==", cst.NotEqual: "!=", cst.LessThan: "<", cst.LessThanEqual: "<=",
+    cst.GreaterThan: ">", cst.GreaterThanEqual: ">=", cst.In: "in", cst.NotIn: "not in",
+    cst.Is: "is", cst.IsNot: "is not",
+}
+DISPLAY_FUNCTIONS = {"print", "display", "str", "repr"}
+
+
+@dataclass(frozen=True)
+class BoundMethod(Value):
+    """`receiver.name` waiting to be called."""
+
+    receiver: Value = field(kw_only=True)
+    name: str = field(kw_only=True)
+
+
+@dataclass(frozen=True)
+class LocalFunction:
+    """A function defined in the script: which parameters take frames, what it returns."""
+
+    name: str
+    params: tuple[str, ...]
+    frame_params: frozenset[str]
+    returns: Value | None  # a template of the return value (Frame), when known
+
+
+@dataclass
+class Services:
+    """What evaluation needs besides the names in scope."""
+
+    table: MappingTable
+    registry: Mapping[str, Callable[[PandasCall, RuleContext], Value]]
+    code_for: Callable[[cst.CSTNode], str]
+    position: Callable[[cst.CSTNode], tuple[int, int]]
+    min_confidence: float = 0.0
+    schemas: Mapping[str, Mapping[str, str]] = field(default_factory=dict)
+    functions: dict[str, LocalFunction] = field(default_factory=dict)
+    call_sites: dict[str, list[tuple[Value, ...]]] = field(default_factory=dict)
+    inside_from_pandas: Callable[[cst.CSTNode], bool] = lambda node: False
+    schema_lookup: Callable[[str, str, dict[str, Any]], dict[str, str] | None] | None = None
+
+
+class Evaluator:
+    def __init__(self, env: dict[str, Value], services: Services) -> None:
+        self.env = env
+        self.services = services
+
+    # -- entry points ---------------------------------------------------------------------------
+    def eval(self, node: cst.BaseExpression) -> Value:
+        method = getattr(self, f"_eval_{type(node).__name__}", None)
+        if method is not None:
+            return method(node)
+        return self.generic(node)
+
+    def source(self, node: cst.CSTNode) -> str:
+        return self.services.code_for(node)
+
+    def opaque(self, node: cst.BaseExpression, const: Any = MISSING) -> Opaque:
+        return Opaque(Code(self.source(node), _precedence(node)), const=const, node=node)
+
+    # -- names, literals ----------------------------------------------------------------------
+    def _eval_Name(self, node: cst.Name) -> Value:
+        if node.value in self.env:
+            return self.env[node.value]
+        if node.value in ("True", "False", "None"):
+            return self.opaque(node, {"True": True, "False": False, "None": None}[node.value])
+        return self.opaque(node)
+
+    def _eval_SimpleString(self, node: cst.SimpleString) -> Value:
+        return self.opaque(node, node.evaluated_value)
+
+    def _eval_ConcatenatedString(self, node: cst.ConcatenatedString) -> Value:
+        value = node.evaluated_value
+        return self.opaque(node, value) if value is not None else self.generic(node)
+
+    def _eval_Integer(self, node: cst.Integer) -> Value:
+        return self.opaque(node, node.evaluated_value)
+
+    def _eval_Float(self, node: cst.Float) -> Value:
+        return self.opaque(node, node.evaluated_value)
+
+    def _eval_List(self, node: cst.List | cst.Tuple) -> Value:
+        values = [self.eval(e.value) for e in node.elements if isinstance(e, cst.Element)]
+        if len(values) == len(node.elements) and all(
+            isinstance(v, Opaque) and v.is_const for v in values
+        ):
+            items = [v.const for v in values]  # type: ignore[union-attr]
+            return self.opaque(node, items if isinstance(node, cst.List) else tuple(items))
+        return self.generic(node)
+
+    _eval_Tuple = _eval_List
+
+    def _eval_Dict(self, node: cst.Dict) -> Value:
+        items: dict[Any, Any] = {}
+        for element in node.elements:
+            if not isinstance(element, cst.DictElement):
+                return self.generic(node)
+            key, value = self.eval(element.key), self.eval(element.value)
+            if not (isinstance(key, Opaque) and key.is_const and isinstance(value, Opaque)
+                    and value.is_const):
+                return self.generic(node)
+            items[key.const] = value.const
+        return self.opaque(node, items)
+
+    def _eval_Lambda(self, node: cst.Lambda) -> Value:
+        return self.opaque(node)
+
+    # -- attributes -----------------------------------------------------------------------------
+    def _eval_Attribute(self, node: cst.Attribute) -> Value:
+        receiver = self.eval(node.value)
+        name = node.attr.value
+        if isinstance(receiver, Module):
+            qualname = f"{receiver.qualname}.{name}"
+            if qualname in ("numpy.nan", "numpy.NaN", "pandas.NA", "pandas.NaT"):
+                return self.opaque(node, math.nan)
+            return Module(Code(self.source(node)), qualname=qualname, sites=receiver.sites)
+        if isinstance(receiver, Frame):
+            if name in ("loc", "iloc"):
+                return Indexer(Code(self.source(node)), frame=receiver, kind=name)
+            if name in pandas_names.FRAME and name not in _FRAME_PROPERTIES:
+                return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
+            if name in _FRAME_PROPERTIES:
+                return self.dispatch(f"frame.{name}", PandasCall(receiver, name, node=node), node)
+            return self.dispatch("frame.getattr", PandasCall(receiver, name, node=node), node)
+        if isinstance(receiver, Column):
+            if name in ("str", "dt"):
+                return Accessor(Code(self.source(node)), column=receiver, kind=name)
+            if name in pandas_names.SERIES and name not in _SERIES_PROPERTIES:
+                return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
+            return self.dispatch(f"series.{name}", PandasCall(receiver, name, node=node), node)
+        if isinstance(receiver, Grouped):
+            if name in pandas_names.GROUPBY and name not in (receiver.frame.columns or ()):
+                return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
+            return self.dispatch("groupby.getitem", PandasCall(
+                receiver, "getitem", (Opaque(emit.lit(name), const=name),), node=node), node)
+        if isinstance(receiver, Accessor):
+            names = pandas_names.STR if receiver.kind == "str" else pandas_names.DT
+            if receiver.kind == "dt" and name in _DT_PROPERTIES:
+                return self.dispatch(f"series.dt.{name}", PandasCall(receiver, name, node=node), node)
+            if name in names:
+                return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
+        if isinstance(receiver, (Column, Frame, Grouped, Accessor, Indexer)):
+            return self.todo(f"{_prefix(receiver)}.{name}", PandasCall(receiver, name, node=node),
+                             node, "porter has no rule for this attribute")
+        return self.generic(node)
+
+    # -- calls ----------------------------------------------------------------------------------
+    def _eval_Call(self, node: cst.Call) -> Value:
+        func = self.eval(node.func)
+        if isinstance(func, Opaque) and not func.sites and isinstance(node.func, cst.Name):
+            name = node.func.value
+            if name in self.services.functions:
+                return self.call_local(self.services.functions[name], node)
+            if name in DISPLAY_FUNCTIONS or name in _BUILTIN_RULES:
+                return self.call_builtin(name, node)
+        if not isinstance(func, (BoundMethod, Module)):
+            return self.generic(node)
+        if isinstance(func, Module) and func.qualname.startswith("numpy."):
+            args = self.call_args(node)
+            if args is None or not any(_is_pandas(v) for v in (*args[0], *args[1].values())):
+                return self.generic(node)
+        args = self.call_args(node)
+        if args is None:
+            return self.todo_unhandled(func, node, "`*args`/`**kwargs` unpacking is not handled")
+        positional, keywords = args
+        if isinstance(func, BoundMethod):
+            key = f"{_prefix(func.receiver)}.{func.name}"
+            call = PandasCall(func.receiver, func.name, positional, keywords, node)
+        else:
+            key = _module_key(func.qualname)
+            call = PandasCall(None, func.qualname.rsplit(".", 1)[-1], positional, keywords, node)
+        return self.dispatch(key, call, node)
+
+    def call_args(self, node: cst.Call) -> tuple[tuple[Value, ...], dict[str, Value]] | None:
+        positional: list[Value] = []
+        keywords: dict[str, Value] = {}
+        for arg in node.args:
+            if arg.star:
+                return None
+            value = self.eval(arg.value)
+            if arg.keyword is not None:
+                keywords[arg.keyword.value] = value
+            else:
+                positional.append(value)
+        return tuple(positional), keywords
+
+    def call_builtin(self, name: str, node: cst.Call) -> Value:
+        args = self.call_args(node)
+        if args is None or not any(_is_pandas(v) for v in (*args[0], *args[1].values())):
+            return self.generic(node)
+        positional, keywords = args
+        if name in _BUILTIN_RULES and positional and _is_pandas(positional[0]):
+            call = PandasCall(positional[0], name, positional[1:], keywords, node)
+            return self.dispatch(_BUILTIN_RULES[name].format(kind=_prefix(positional[0])), call, node)
+        # display: print(df) prints the collected frame
+        parts = [self.for_display(v) for v in positional]
+        parts += [f"{k}={self.for_display(v)}" for k, v in keywords.items()]
+        sites = tuple(s for v in (*positional, *keywords.values()) for s in v.sites)
+        return Opaque(emit.call(self.source(node.func), *[Code(p) for p in parts]), sites=sites)
+
+    def for_display(self, value: Value) -> str:
+        return handover.for_display(value).text
+
+    def call_local(self, function: LocalFunction, node: cst.Call) -> Value:
+        args = self.call_args(node)
+        if args is None:
+            return self.generic(node)
+        positional, keywords = args
+        self.services.call_sites.setdefault(function.name, []).append(
+            tuple(positional) + tuple(keywords.values()))
+        bound = dict(zip(function.params, positional)) | keywords
+        parts: list[str] = []
+        sites: list[SiteDraft] = []
+        for i, arg in enumerate(node.args):
+            param = arg.keyword.value if arg.keyword else (
+                function.params[i] if i < len(function.params) else "")
+            value = bound.get(param, positional[i] if i < len(positional) else None)
+            if value is None:
+                return self.generic(node)
+            sites += value.sites
+            if isinstance(value, Frame) and param in function.frame_params:
+                text = value.code.text
+            elif _is_pandas(value):
+                text = self.handed_to_unknown(value, node).code.text
+                sites += self.handed_to_unknown(value, node).sites[len(value.sites):]
+            else:
+                text = value.code.text
+            parts.append(f"{arg.keyword.value}={text}" if arg.keyword else text)
+        code = Code(f"{self.source(node.func)}({', '.join(parts)})")
+        if isinstance(function.returns, Frame):
+            return replace(function.returns, code=code, sites=tuple(sites))
+        if isinstance(function.returns, Column | Scalar):
+            return PandasValue(code, sites=tuple(sites))
+        return Opaque(code, sites=tuple(sites))
+
+    # -- subscripts -----------------------------------------------------------------------------
+    def _eval_Subscript(self, node: cst.Subscript) -> Value:
+        receiver = self.eval(node.value)
+        if not isinstance(receiver, (Frame, Column, Grouped, Indexer, Accessor)):
+            return self.generic(node)
+        keys: list[Value] = []
+        for element in node.slice:
+            if isinstance(element.slice, cst.Index):
+                keys.append(self.eval(element.slice.value))
+            else:
+                keys.append(self.eval_slice(element.slice))
+        key_value: Value = keys[0] if len(keys) == 1 else _TupleKey(Code(""), items=tuple(keys))
+        if isinstance(receiver, Indexer):
+            call = PandasCall(receiver.frame, receiver.kind, tuple(keys), node=node)
+            return self.dispatch(f"frame.{receiver.kind}", call, node)
+        call = PandasCall(receiver, "getitem", (key_value,), node=node)
+        return self.dispatch(_getitem_key(receiver, key_value), call, node)
+
+    def eval_slice(self, node: cst.Slice) -> Value:
+        parts = []
+        for part in (node.lower, node.upper, node.step):
+            if part is None:
+                parts.append(None)
+                continue
+            value = self.eval(part)
+            if not (isinstance(value, Opaque) and value.is_const):
+                return self.opaque_slice(node)
+            parts.append(value.const)
+        return Opaque(Code(self.source(node)), const=slice(*parts), node=node)
+
+    def opaque_slice(self, node: cst.Slice) -> Value:
+        return Opaque(Code(self.source(node)), node=node)
+
+    # -- operators ------------------------------------------------------------------------------
+    def _eval_BinaryOperation(self, node: cst.BinaryOperation) -> Value:
+        left, right = self.eval(node.left), self.eval(node.right)
+        op = BINARY_OPS[type(node.operator)]
+        if not (_is_series_like(left) or _is_series_like(right)):
+            if isinstance(left, Frame) or isinstance(right, Frame):
+                return self.todo_operator(left, right, op, node)
+            return self.generic(node)
+        key = "series.logical" if op in ("&", "|", "^") else "series.arith"
+        return self.dispatch(key, PandasCall(left, op, (right,), node=node), node)
+
+    def _eval_Comparison(self, node: cst.Comparison) -> Value:
+        left = self.eval(node.left)
+        if len(node.comparisons) != 1:
+            return self.generic(node)
+        target = node.comparisons[0]
+        right = self.eval(target.comparator)
+        op = COMPARE_OPS[type(target.operator)]
+        if not (_is_series_like(left) or _is_series_like(right)) or op in ("in", "not in", "is", "is not"):
+            return self.generic(node)
+        return self.dispatch("series.compare", PandasCall(left, op, (right,), node=node), node)
+
+    def _eval_UnaryOperation(self, node: cst.UnaryOperation) -> Value:
+        operand = self.eval(node.expression)
+        if isinstance(node.operator, cst.Minus) and isinstance(operand, Opaque) and operand.is_const:
+            if isinstance(operand.const, (int, float)):
+                return self.opaque(node, -operand.const)
+        if not _is_series_like(operand):
+            return self.generic(node)
+        op = {cst.BitInvert: "~", cst.Minus: "-", cst.Plus: "+", cst.Not: "not"}[type(node.operator)]
+        if op == "not":
+            return self.generic(node)
+        return self.dispatch("series.unary", PandasCall(operand, op, node=node), node)
+
+    # -- rules ----------------------------------------------------------------------------------
+    def dispatch(self, key: str, call: PandasCall, node: cst.CSTNode) -> Value:
+        table, registry = self.services.table, self.services.registry
+        entry = table.get(key)
+        fn = registry.get(key)
+        if entry is None or fn is None or entry.status == "todo":
+            reason = entry.advice if entry is not None and entry.status == "todo" else (
+                "porter has no rule for this API yet")
+            return self.todo(key, call, node, reason, entry=entry)
+        ctx = RuleContext(key, entry, entry.confidence, schema_lookup=self.services.schema_lookup)
+        try:
+            result = fn(call, ctx)
+        except Unsupported as exc:
+            return self.todo(key, call, node, exc.reason, entry=entry)
+        status = "handover" if entry.status == "handover" or ctx.handover else "converted"
+        if status == "converted" and ctx.confidence < self.services.min_confidence:
+            reason = (f"confidence {ctx.confidence:.2f} is below --min-confidence "
+                      f"{self.services.min_confidence:.2f}")
+            if ctx.reasons:
+                reason += f" ({'; '.join(ctx.reasons)})"
+            return self.todo(key, call, node, reason, entry=entry, suggestion=result.code.text)
+        line, end_line = self.services.position(node)
+        message = "; ".join(ctx.reasons) if ctx.reasons else _first_sentence(entry.notes)
+        site = SiteDraft(key, entry.rule or key, status, ctx.confidence, message, line, end_line)
+        return result.with_sites(*_child_sites(call, result), site)
+
+    def todo(self, key: str, call: PandasCall, node: cst.CSTNode, reason: str, *,
+             entry: MappingEntry | None = None, suggestion: str | None = None) -> Value:
+        """Keep this use on pandas: hand the inputs over and mark the line."""
+        line, end_line = self.services.position(node)
+        advice = entry.advice if entry is not None and entry.status != "todo" else ""
+        message = reason if not advice or advice == reason else f"{reason}; {advice}"
+        if suggestion:
+            message += f"; suggested: {suggestion}"
+        site = SiteDraft(key, entry.rule or "todo" if entry else "todo", "todo", 0.0, message,
+                         line, end_line, suggestion)
+        fallback = handover.pandas_fallback(call, self.source, node)
+        sites = _child_sites(call, None) + (site,)
+        if (call.receiver is None and entry is not None and entry.extra.get("returns") == "frame"
+                and not self.services.inside_from_pandas(node)):
+            code = emit.pl("from_pandas", fallback).method("lazy")
+            return Frame(code, sites=sites)
+        return PandasValue(fallback, sites=sites)
+
+    def todo_unhandled(self, func: Value, node: cst.Call, reason: str) -> Value:
+        if isinstance(func, BoundMethod):
+            key = f"{_prefix(func.receiver)}.{func.name}"
+            call = PandasCall(func.receiver, func.name, (), {}, node)
+        else:
+            key = _module_key(func.qualname)  # type: ignore[attr-defined]
+            call = PandasCall(None, key, (), {}, node)
+        return self.todo(key, call, node, reason, entry=self.services.table.get(key))
+
+    def todo_operator(self, left: Value, right: Value, op: str, node: cst.CSTNode) -> Value:
+        call = PandasCall(left, op, (right,), node=node)
+        return self.todo("frame.arith", call, node, "arithmetic on whole frames is not ported",
+                         entry=self.services.table.get("frame.arith"))
+
+    def handed_to_unknown(self, value: Value, node: cst.CSTNode) -> Value:
+        """A pandas value passed to code porter does not model: give it the pandas object."""
+        line, end_line = self.services.position(node)
+        code = handover.to_pandas(value)
+        site = SiteDraft("handover.unknown_code", "handover", "todo", 0.0,
+                         "passed to code porter does not understand: handed over to pandas "
+                         "with .collect().to_pandas(); port that code to take a Polars frame",
+                         line, end_line)
+        return PandasValue(code, sites=value.sites + (site,))
+
+    # -- everything else ------------------------------------------------------------------------
+    def generic(self, node: cst.BaseExpression, display: bool = False) -> Value:
+        """Keep `node` as written, rewriting pandas values found inside it."""
+        rewriter = _ChildRewriter(self, node, display)
+        new_node = node.visit(rewriter)
+        if not rewriter.changed:
+            return Opaque(Code(self.source(node), _precedence(node)), node=node,
+                          sites=tuple(rewriter.sites))
+        text = self.source(new_node)  # type: ignore[arg-type]
+        return Opaque(Code(text, _precedence(node)), sites=tuple(rewriter.sites))
+
+
+@dataclass(frozen=True)
+class _TupleKey(Value):
+    items: tuple[Value, ...] = field(kw_only=True)
+
+
+class _ChildRewriter(cst.CSTTransformer):
+    """Evaluates the outermost expressions inside a node and swaps in their rewritten code."""
+
+    def __init__(self, evaluator: Evaluator, root: cst.CSTNode, display: bool) -> None:
+        super().__init__()
+        self.evaluator = evaluator
+        self.root = root
+        self.display = display
+        self.changed = False
+        self.sites: list[SiteDraft] = []
+        self.replacements: dict[int, cst.BaseExpression] = {}
+        self.shadow_depth = 0
+
+    def on_visit(self, node: cst.CSTNode) -> bool:
+        if node is self.root:
+            return True
+        if isinstance(node, (cst.Lambda, cst.ListComp, cst.SetComp, cst.DictComp,
+                             cst.GeneratorExp)):
+            return self._visit_scope(node)
+        if isinstance(node, cst.FormattedStringExpression):
+            self._replace(node.expression, display=True)
+            return False
+        if isinstance(node, cst.BaseExpression):
+            self._replace(node, display=self.display)
+            return False
+        return True
+
+    def _visit_scope(self, node: cst.CSTNode) -> bool:
+        # Names bound inside a lambda or comprehension are not the script's frames; only the
+        # outermost iterable is evaluated in the enclosing scope.
+        if isinstance(node, (cst.ListComp, cst.SetComp, cst.DictComp, cst.GeneratorExp)):
+            self._replace(node.for_in.iter, display=False)
+        return False
+
+    def _replace(self, node: cst.BaseExpression, display: bool) -> None:
+        evaluator = self.evaluator
+        value = evaluator.eval(node)
+        if _is_pandas(value):
+            value = (Opaque(handover.for_display(value), sites=value.sites) if display
+                     else evaluator.handed_to_unknown(value, node))
+        self.sites += value.sites
+        original = evaluator.source(node)
+        if value.code.text != original:
+            text = value.code.text if value.code.prec >= _precedence(node) else f"({value.code.text})"
+            self.replacements[id(node)] = cst.parse_expression(text)
+            self.changed = True
+
+    def on_leave(self, original: cst.CSTNode, updated: cst.CSTNode) -> Any:
+        replacement = self.replacements.get(id(original))
+        if replacement is not None:
+            return replacement.with_changes(lpar=original.lpar, rpar=original.rpar) \
+                if getattr(original, "lpar", None) else replacement
+        return updated
+
+
+# -- helpers ------------------------------------------------------------------------------------
+
+_FRAME_PROPERTIES = {"columns", "shape", "dtypes", "empty", "index", "values", "T", "size",
+                     "ndim", "axes", "at", "iat", "attrs", "flags", "style", "plot"}
+_SERIES_PROPERTIES = {"values", "shape", "dtype", "name", "index", "size", "empty", "T",
+                      "is_unique", "hasnans", "array", "nbytes", "ndim", "dtypes", "plot",
+                      "is_monotonic_increasing", "is_monotonic_decreasing", "at", "iat", "loc",
+                      "iloc", "cat", "sparse", "list", "struct"}
+_DT_PROPERTIES = {"year", "month", "day", "hour", "minute", "second", "microsecond",
+                  "nanosecond", "weekday", "dayofweek", "day_of_week", "dayofyear",
+                  "day_of_year", "quarter", "date", "time", "is_leap_year", "days_in_month",
+                  "daysinmonth", "is_month_start", "is_month_end", "days", "seconds",
+                  "tz", "freq", "unit", "week", "weekofyear"}
+_BUILTIN_RULES = {"len": "builtin.len", "round": "{kind}.round", "abs": "{kind}.abs",
+                  "list": "builtin.list", "sum": "builtin.sum", "max": "builtin.max",
+                  "min": "builtin.min"}
+
+
+def _prefix(value: Value) -> str:
+    if isinstance(value, Frame):
+        return "frame"
+    if isinstance(value, Column):
+        return "series"
+    if isinstance(value, Grouped):
+        return "groupby"
+    if isinstance(value, Accessor):
+        return f"series.{value.kind}"
+    if isinstance(value, Indexer):
+        return f"frame.{value.kind}"
+    return "value"
+
+
+def _module_key(qualname: str) -> str:
+    module, _, name = qualname.partition(".")
+    return f"{'pd' if module == 'pandas' else 'np'}.{name}"
+
+
+def _getitem_key(receiver: Value, key: Value) -> str:
+    if isinstance(receiver, Grouped):
+        return "groupby.getitem"
+    if isinstance(receiver, Accessor):
+        return f"series.{receiver.kind}.getitem"
+    if isinstance(receiver, Column):
+        return "series.getitem"
+    if isinstance(key, Column):
+        return "frame.getitem.mask"
+    if isinstance(key, Opaque) and key.is_const:
+        if isinstance(key.const, str):
+            return "frame.getitem.column"
+        if isinstance(key.const, list):
+            return "frame.getitem.columns"
+        if isinstance(key.const, slice):
+            return "frame.getitem.slice"
+    return "frame.getitem.column"
+
+
+def _is_pandas(value: Value) -> bool:
+    return isinstance(value, (Frame, Column, Grouped, Accessor, Indexer, BoundMethod))
+
+
+def _is_series_like(value: Value) -> bool:
+    return isinstance(value, Column)
+
+
+def _child_sites(call: PandasCall, result: Value | None) -> tuple[SiteDraft, ...]:
+    sites: list[SiteDraft] = []
+    for value in (call.receiver, *call.args, *call.kwargs.values()):
+        if value is None:
+            continue
+        if isinstance(value, _TupleKey):
+            for item in value.items:
+                sites += item.sites
+        else:
+            sites += value.sites
+    if result is not None:
+        sites += [s for s in result.sites if s not in sites]
+    seen: list[SiteDraft] = []
+    for site in sites:
+        if site not in seen:
+            seen.append(site)
+    return tuple(seen)
+
+
+def _first_sentence(text: str) -> str:
+    text = text.strip()
+    end = text.find(". ")
+    return text if end < 0 else text[: end + 1]
+
+
+def _precedence(node: cst.CSTNode) -> int:
+    if getattr(node, "lpar", None):
+        return ATOM
+    if isinstance(node, cst.BinaryOperation):
+        return emit.BINARY_PRECEDENCE[BINARY_OPS[type(node.operator)]]
+    if isinstance(node, cst.BooleanOperation):
+        return emit.AND if isinstance(node.operator, cst.And) else emit.OR
+    if isinstance(node, cst.Comparison):
+        return emit.COMPARE
+    if isinstance(node, cst.UnaryOperation):
+        return emit.NOT if isinstance(node.operator, cst.Not) else emit.UNARY
+    if isinstance(node, cst.IfExp):
+        return emit.TERNARY
+    if isinstance(node, cst.Lambda):
+        return emit.LAMBDA
+    return ATOM

@@ -1,0 +1,128 @@
+"""Where Polars values meet code that wants pandas (or wants to print them).
+
+Every hand-over is written out in the code, so it is visible in review and counted in the report.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+
+import libcst as cst
+
+from porter.emit import code as emit
+from porter.emit.code import Code
+from porter.translate.context import PandasCall
+from porter.translate.values import (
+    Accessor, Column, Frame, Grouped, Indexer, Opaque, Value,
+)
+
+
+def series_frame(column: Column) -> Code:
+    """A column as a frame of its index columns (if any) and its values."""
+    name = column.name if column.name is not None else "0"
+    expr = column.code.method("fill_null", False) if column.null_is_false else column.code
+    if column.name is None or not (column.code.text == emit.col(name).text):
+        expr = expr.method("alias", name)
+    keys = [emit.col(k) for k in column.frame.index if k != name]
+    if expr.text == emit.col(name).text and column.frame.columns == (*column.frame.index, name):
+        return column.frame.code  # the frame is already exactly the Series
+    return column.frame.code.method("select", *keys, expr)
+
+
+def collected(value: Value) -> Code:
+    """A frame or column as an eager Polars object."""
+    if isinstance(value, Frame):
+        return value.code.method("collect")
+    if isinstance(value, Column):
+        frame = series_frame(value).method("collect")
+        return frame if value.frame.index else frame.method("to_series")
+    return value.code
+
+
+def to_pandas(value: Value) -> Code:
+    """The pandas object this value stands for (index restored where porter tracks one)."""
+    if isinstance(value, Frame):
+        code = value.code.method("collect").method("to_pandas")
+        if value.index:
+            code = code.method("set_index", emit.names_arg(value.index))
+        return code
+    if isinstance(value, Column):
+        if value.frame.index:
+            name = value.name if value.name is not None else "0"
+            return (series_frame(value).method("collect").method("to_pandas")
+                    .method("set_index", emit.names_arg(value.frame.index)).index(name))
+        return series_frame(value).method("collect").method("to_series").method("to_pandas")
+    if isinstance(value, Grouped):
+        args: dict[str, object] = {}
+        if not value.sort:
+            args["sort"] = False
+        if not value.dropna:
+            args["dropna"] = False
+        if not value.as_index:
+            args["as_index"] = False
+        code = to_pandas(value.frame).method("groupby", emit.names_arg(value.keys), **args)
+        if value.selection is not None:
+            code = code.index(value.selection[0] if value.single else list(value.selection))
+        return code
+    if isinstance(value, Accessor):
+        return to_pandas(value.column).attr(value.kind)
+    if isinstance(value, Indexer):
+        return to_pandas(value.frame).attr(value.kind)
+    return value.code
+
+
+def for_display(value: Value) -> Code:
+    """What `print(value)` should print: the collected Polars object."""
+    if isinstance(value, (Frame, Column)):
+        return collected(value)
+    if isinstance(value, (Grouped, Accessor, Indexer)):
+        return to_pandas(value)
+    return value.code
+
+
+def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
+                    node: cst.CSTNode) -> Code:
+    """The original pandas call, run on pandas versions of its inputs."""
+    if isinstance(node, cst.Call):
+        args = []
+        for arg in node.args:
+            value = _argument_value(call, arg)
+            text = to_pandas(value).text if value is not None else source(arg.value)
+            star = arg.star or ""
+            args.append(f"{arg.keyword.value}={text}" if arg.keyword else f"{star}{text}")
+        func = node.func
+        if call.receiver is not None and isinstance(func, cst.Attribute):
+            receiver = to_pandas(call.receiver).wrapped(emit.ATOM)
+            return Code(f"{receiver}.{func.attr.value}({', '.join(args)})")
+        return Code(f"{source(func)}({', '.join(args)})")
+    if isinstance(node, cst.Attribute) and call.receiver is not None:
+        return Code(f"{to_pandas(call.receiver).wrapped(emit.ATOM)}.{node.attr.value}")
+    if isinstance(node, cst.Subscript) and call.receiver is not None:
+        receiver = call.receiver
+        inner = source(node.slice[0]) if len(node.slice) == 1 else ", ".join(
+            source(s) for s in node.slice)
+        if len(node.slice) == 1 and call.args and not isinstance(call.args[0], Opaque):
+            inner = to_pandas(call.args[0]).text
+        base = to_pandas(receiver).wrapped(emit.ATOM)
+        if isinstance(node.value, cst.Attribute) and node.value.attr.value in ("loc", "iloc") \
+                and isinstance(receiver, Frame):
+            base = f"{base}.{node.value.attr.value}"
+        return Code(f"{base}[{inner}]")
+    if isinstance(node, (cst.BinaryOperation, cst.Comparison)) and call.receiver is not None:
+        return emit.binop(to_pandas(call.receiver), call.name, to_pandas(call.args[0]))
+    if isinstance(node, cst.UnaryOperation) and call.receiver is not None:
+        return emit.unary(call.name, to_pandas(call.receiver))
+    return Code(source(node))
+
+
+def _argument_value(call: PandasCall, arg: cst.Arg) -> Value | None:
+    """The evaluated value of a call argument, when it is a pandas value."""
+    if arg.keyword is not None:
+        value = call.kwargs.get(arg.keyword.value)
+    else:
+        index = [a for a in (call.node.args if isinstance(call.node, cst.Call) else ())
+                 if a.keyword is None].index(arg)
+        value = call.args[index] if index < len(call.args) else None
+    if value is None or isinstance(value, Opaque):
+        return None
+    return value

@@ -1,0 +1,150 @@
+"""Import edits after a rewrite: add `import polars as pl` once, drop pandas imports nobody uses."""
+
+from __future__ import annotations
+
+import libcst as cst
+
+from porter.analysis.imports import ImportFacts
+from porter.rules.io_options import NA_CONSTANT, PANDAS_NA_TOKENS
+
+
+class _NameUses(cst.CSTVisitor):
+    """Names read anywhere outside import statements."""
+
+    def __init__(self) -> None:
+        self.names: set[str] = set()
+
+    def visit_Import(self, node: cst.Import) -> bool:
+        return False
+
+    def visit_ImportFrom(self, node: cst.ImportFrom) -> bool:
+        return False
+
+    def visit_Attribute(self, node: cst.Attribute) -> bool:
+        node.value.visit(self)
+        return False
+
+    def visit_Arg(self, node: cst.Arg) -> bool:
+        node.value.visit(self)
+        return False
+
+    def visit_Name(self, node: cst.Name) -> None:
+        self.names.add(node.value)
+
+
+def names_used(module: cst.Module) -> set[str]:
+    visitor = _NameUses()
+    module.visit(visitor)
+    return visitor.names
+
+
+def fix_imports(module: cst.Module, facts: ImportFacts) -> cst.Module:
+    used = names_used(module)
+    needs_polars = "pl" in used and not facts.has_polars_as_pl
+    pandas_names = {n for n, q in facts.names.items() if q == "pandas" or q.startswith("pandas.")}
+    unused = pandas_names - used
+
+    body: list[cst.CSTNode] = []
+    inserted = not needs_polars
+    for stmt in module.body:
+        if isinstance(stmt, cst.SimpleStatementLine) and len(stmt.body) == 1 \
+                and isinstance(stmt.body[0], (cst.Import, cst.ImportFrom)) \
+                and any(stmt.body[0] is imp for imp in facts.pandas_imports):
+            kept = _without_names(stmt.body[0], unused)
+            if kept is None and not inserted:
+                body.append(stmt.with_changes(body=[_polars_import()]))
+                inserted = True
+                continue
+            if kept is not None:
+                body.append(stmt.with_changes(body=[kept]))
+                if not inserted:
+                    body.append(cst.SimpleStatementLine(body=[_polars_import()]))
+                    inserted = True
+            continue
+        body.append(stmt)
+    if not inserted:
+        body = _insert_at_top(body)
+    if NA_CONSTANT in used and not _defines(module, NA_CONSTANT):
+        body = _insert_after_imports(body, _na_constant())
+    return module.with_changes(body=body)
+
+
+def _defines(module: cst.Module, name: str) -> bool:
+    for stmt in module.body:
+        if isinstance(stmt, cst.SimpleStatementLine):
+            for small in stmt.body:
+                if isinstance(small, cst.Assign) and any(
+                        isinstance(t.target, cst.Name) and t.target.value == name for t in small.targets):
+                    return True
+    return False
+
+
+def _na_constant() -> cst.SimpleStatementLine:
+    lines, current = [], ""
+    for token in PANDAS_NA_TOKENS:
+        piece = f'"{token}", '
+        if len(current) + len(piece) > 80:
+            lines.append(current.rstrip())
+            current = ""
+        current += piece
+    lines.append(current.rstrip())
+    items = "\n".join(f"    {line}" for line in lines)
+    stmt = cst.parse_statement(f"{NA_CONSTANT} = [\n{items}\n]\n")
+    assert isinstance(stmt, cst.SimpleStatementLine)
+    comment = cst.Comment("# Text that pandas' read_csv reads as a missing value.")
+    return stmt.with_changes(leading_lines=[cst.EmptyLine(), cst.EmptyLine(comment=comment)])
+
+
+def _insert_after_imports(body: list[cst.CSTNode], stmt: cst.CSTNode) -> list[cst.CSTNode]:
+    position = 0
+    for i, node in enumerate(body):
+        if isinstance(node, cst.SimpleStatementLine) and all(
+                isinstance(s, (cst.Import, cst.ImportFrom)) for s in node.body):
+            position = i + 1
+        elif isinstance(node, cst.SimpleStatementLine) and i == 0 and isinstance(
+                node.body[0], cst.Expr):
+            position = 1
+        else:
+            break
+    return [*body[:position], stmt, *body[position:]]
+
+
+def _polars_import() -> cst.Import:
+    return cst.Import(names=[cst.ImportAlias(name=cst.Name("polars"),
+                                             asname=cst.AsName(name=cst.Name("pl")))])
+
+
+def _without_names(stmt: cst.Import | cst.ImportFrom, unused: set[str]) -> cst.Import | cst.ImportFrom | None:
+    """The import statement without the aliases in `unused`; None when nothing is left."""
+    if isinstance(stmt.names, cst.ImportStar):
+        return stmt
+    kept = []
+    for alias in stmt.names:
+        local = alias.asname.name.value if alias.asname is not None else (  # type: ignore[union-attr]
+            alias.name.value if isinstance(alias.name, cst.Name) else
+            cst.Module([]).code_for_node(alias.name).split(".")[0])
+        if local not in unused:
+            kept.append(alias)
+    if not kept:
+        return None
+    if len(kept) == len(stmt.names):
+        return stmt
+    kept[-1] = kept[-1].with_changes(comma=cst.MaybeSentinel.DEFAULT)
+    return stmt.with_changes(names=kept)
+
+
+def _insert_at_top(body: list[cst.CSTNode]) -> list[cst.CSTNode]:
+    """After the docstring and `from __future__` imports."""
+    position = 0
+    for i, stmt in enumerate(body):
+        if isinstance(stmt, cst.SimpleStatementLine) and len(stmt.body) == 1:
+            small = stmt.body[0]
+            if i == 0 and isinstance(small, cst.Expr) and isinstance(small.value, cst.SimpleString):
+                position = 1
+                continue
+            if isinstance(small, cst.ImportFrom) and small.module is not None \
+                    and cst.Module([]).code_for_node(small.module) == "__future__":
+                position = i + 1
+                continue
+        break
+    return [*body[:position], cst.SimpleStatementLine(body=[_polars_import()]), *body[position:]]

@@ -1,0 +1,146 @@
+"""Symbolic values: what a pandas expression stands for, and the Polars code it becomes.
+
+The translator evaluates each pandas expression into one of these before it decides what to
+write (see docs/design.md, "evaluating pandas code symbolically").
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field, replace
+import itertools
+from typing import Any
+
+from porter.emit.code import Code
+from porter.model import SiteDraft
+
+_tokens = itertools.count(1)
+
+
+def fresh_token() -> int:
+    """A new identity for a set of rows or a column version."""
+    return next(_tokens)
+
+
+MISSING: Any = object()
+
+
+@dataclass(frozen=True)
+class Value:
+    code: Code
+    sites: tuple[SiteDraft, ...] = field(default=(), kw_only=True)
+
+    def with_sites(self, *sites: SiteDraft) -> Any:
+        return replace(self, sites=self.sites + tuple(sites))
+
+
+@dataclass(frozen=True)
+class Frame(Value):
+    """A LazyFrame-valued expression standing for a pandas DataFrame.
+
+    rows      identity of the rows: two frames with the same token have the same rows in the
+              same order, so a column of one is an expression of the other.
+    columns   column names in order, when known.
+    dtypes    porter's dtype names ("int", "float", "str", "bool", "datetime", "date",
+              "category") for the columns whose type is known.
+    versions  per column, a token that changes when the column is overwritten.
+    index     the columns that hold what pandas keeps in the index (after a groupby);
+              empty for a default RangeIndex.
+    labels_intact
+              the RangeIndex still reads 0..n-1 (no filter, sort or slice since it was made).
+    """
+
+    rows: int = field(default_factory=fresh_token, kw_only=True)
+    columns: tuple[str, ...] | None = field(default=None, kw_only=True)
+    dtypes: tuple[tuple[str, str], ...] = field(default=(), kw_only=True)
+    versions: tuple[tuple[str, int], ...] = field(default=(), kw_only=True)
+    index: tuple[str, ...] = field(default=(), kw_only=True)
+    labels_intact: bool = field(default=True, kw_only=True)
+
+    def dtype(self, column: str) -> str | None:
+        return dict(self.dtypes).get(column)
+
+    def version(self, column: str) -> int:
+        return dict(self.versions).get(column, 0)
+
+
+@dataclass(frozen=True)
+class Column(Value):
+    """A pandas Series that is a column expression over `frame`.
+
+    `code` is the Polars expression (for example `pl.col("kg") * 2`). `null_is_false` marks a
+    boolean expression that is null where pandas has False (a comparison with a missing value),
+    so it needs `fill_null(False)` before it is negated or used as a value.
+    """
+
+    frame: Frame = field(kw_only=True)
+    name: str | None = field(default=None, kw_only=True)
+    dtype: str | None = field(default=None, kw_only=True)
+    null_is_false: bool = field(default=False, kw_only=True)
+    refs: frozenset[str] = field(default=frozenset(), kw_only=True)
+    versions: tuple[tuple[str, int], ...] = field(default=(), kw_only=True)
+
+
+@dataclass(frozen=True)
+class Grouped(Value):
+    """A pending groupby: `code` is the frame being grouped (or a prepared LazyGroupBy)."""
+
+    frame: Frame = field(kw_only=True)
+    keys: tuple[str, ...] = field(kw_only=True)
+    sort: bool = field(default=True, kw_only=True)
+    dropna: bool = field(default=True, kw_only=True)
+    as_index: bool = field(default=True, kw_only=True)
+    selection: tuple[str, ...] | None = field(default=None, kw_only=True)
+    single: bool = field(default=False, kw_only=True)
+    prepared: bool = field(default=False, kw_only=True)  # `code` is already a LazyGroupBy
+
+
+@dataclass(frozen=True)
+class Scalar(Value):
+    """A plain Python value computed from a frame (already collected in `code`)."""
+
+    pytype: str | None = field(default=None, kw_only=True)
+    agg: Column | None = field(default=None, kw_only=True)  # the reduction as an expression of its frame
+
+
+@dataclass(frozen=True)
+class PandasValue(Value):
+    """A real pandas object at run time: code porter handed over to pandas."""
+
+
+@dataclass(frozen=True)
+class Module(Value):
+    """The pandas or numpy module (or a function imported from it)."""
+
+    qualname: str = field(kw_only=True)
+
+
+@dataclass(frozen=True)
+class Accessor(Value):
+    """`series.str` / `series.dt`: waiting for its method."""
+
+    column: Column = field(kw_only=True)
+    kind: str = field(kw_only=True)
+
+
+@dataclass(frozen=True)
+class Indexer(Value):
+    """`df.loc` / `df.iloc`: waiting for its subscript."""
+
+    frame: Frame = field(kw_only=True)
+    kind: str = field(kw_only=True)
+
+
+@dataclass(frozen=True)
+class Opaque(Value):
+    """Anything porter does not model; `const` holds its value when it is a literal."""
+
+    const: Any = field(default=MISSING, kw_only=True)
+    node: Any = field(default=None, kw_only=True, compare=False)  # the libcst node, for lambdas
+    pytype: str | None = field(default=None, kw_only=True)  # "str" for a loop over names
+
+    @property
+    def is_const(self) -> bool:
+        return self.const is not MISSING
+
+
+PANDAS_KINDS = (Frame, Column, Grouped, Accessor, Indexer)
