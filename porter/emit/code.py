@@ -174,8 +174,19 @@ def names_arg(names: Iterable[str]) -> object:
 LINE_LENGTH = 88
 
 
+def _parses(text: str) -> bool:
+    import ast
+    try:
+        ast.parse(text, mode="eval")
+    except SyntaxError:
+        return False
+    return True
+
+
 def layout_chain(code: Code, indent: str, prefix: str, suffix: str = "") -> str:
     """`prefix + code + suffix`, broken into one step per line when it does not fit."""
+    if "\n" in code.text and not _parses(code.text):
+        code = Code(f"({code.text})")
     one_line = f"{prefix}{code.text}{suffix}"
     if len(indent) + len(one_line) <= LINE_LENGTH or code.base is None or len(code.steps) < 2:
         return one_line

@@ -14,7 +14,7 @@ from porter.rules.io import polars_dtype
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, derive, derived_column, with_column_updates,
 )
-from porter.translate.values import Column, Frame, Opaque, Scalar, Value
+from porter.translate.values import Column, Frame, Opaque, PandasValue, Scalar, Value
 
 
 def named(code: Code, name: str) -> tuple[Code | None, dict[str, Code]]:
@@ -56,7 +56,11 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
     if isinstance(value, Opaque):
         ctx.lower(f"`{value.code.text}` is taken to be a single value broadcast to every row", 0.8)
         return emit.pl("lit", value.code), None
-    raise Unsupported("a value computed by pandas assigned as a column (index alignment)")
+    if isinstance(value, PandasValue):
+        ctx.needs_review("a Series computed by pandas is put back by position (pandas aligns it "
+                         "on the index); port the computation to an expression")
+        return emit.call("pl.Series", value.code, nan_to_null=True), None
+    raise Unsupported("this value cannot be assigned as a column")
 
 
 @rule("frame.setitem")

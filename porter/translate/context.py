@@ -76,6 +76,12 @@ class RuleContext:
     reasons: list[str] = field(default_factory=list)
     handover: bool = False
     schema_lookup: Any = None  # (reader, path, options) -> {column: dtype} from --data, or None
+    evaluate: Any = None  # (node, {name: value}) -> Value, for lambda bodies
+    todo_note: str | None = None  # the rewrite is written, but the site still needs a person
+
+    def needs_review(self, reason: str) -> None:
+        """Keep the rewrite but report the site as a TODO (for example a hand-back from pandas)."""
+        self.todo_note = reason
 
     def input_schema(self, reader: str, path: object, options: dict[str, Any]) -> dict[str, str] | None:
         """Column types of an input file, when the user gave --data (no data is loaded)."""

@@ -55,8 +55,9 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     services.functions = {f.name: f for f in functions}
 
     # Which parameters of the script's own functions take frames is learnt from the calls:
-    # run the pass until that stops changing (twice is almost always enough).
-    for _ in range(3):
+    # run the pass until that stops changing (each round can learn one more link of a chain
+    # of helpers).
+    for _ in range(10):
         services.call_sites = {}
         walker = _Walker(services, facts, emit_code=False)
         walker.block(module.body, _initial_env(facts), module.default_indent, "")

@@ -98,6 +98,8 @@ class Evaluator:
             return self.env[node.value]
         if node.value in ("True", "False", "None"):
             return self.opaque(node, {"True": True, "False": False, "None": None}[node.value])
+        if node.value in _TYPE_NAMES:
+            return self.opaque(node, _TYPE_NAMES[node.value])
         return self.opaque(node)
 
     def _eval_SimpleString(self, node: cst.SimpleString) -> Value:
@@ -156,6 +158,8 @@ class Evaluator:
             if name in _FRAME_PROPERTIES:
                 return self.dispatch(f"frame.{name}", PandasCall(receiver, name, node=node), node)
             return self.dispatch("frame.getattr", PandasCall(receiver, name, node=node), node)
+        if isinstance(receiver, Column) and receiver.element:
+            return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
         if isinstance(receiver, Column):
             if name in ("str", "dt"):
                 return Accessor(Code(self.source(node)), column=receiver, kind=name)
@@ -187,6 +191,9 @@ class Evaluator:
                 return self.call_local(self.services.functions[name], node)
             if name in DISPLAY_FUNCTIONS or name in _BUILTIN_RULES:
                 return self.call_builtin(name, node)
+        lookup = self.dict_get(node)
+        if lookup is not None:
+            return lookup
         if not isinstance(func, (BoundMethod, Module)):
             return self.generic(node)
         if isinstance(func, Module) and func.qualname.startswith("numpy."):
@@ -204,6 +211,20 @@ class Evaluator:
             key = _module_key(func.qualname)
             call = PandasCall(None, func.qualname.rsplit(".", 1)[-1], positional, keywords, node)
         return self.dispatch(key, call, node)
+
+    def dict_get(self, node: cst.Call) -> Value | None:
+        """`mapping.get(x, default)` where x is a lambda's parameter: a lookup."""
+        func = node.func
+        if not (isinstance(func, cst.Attribute) and func.attr.value == "get"):
+            return None
+        mapping = self.eval(func.value)
+        if not (isinstance(mapping, Opaque) and isinstance(mapping.const, dict)):
+            return None
+        args = self.call_args(node)
+        if args is None or not args[0] or not (isinstance(args[0][0], Column) and args[0][0].element):
+            return None
+        call = PandasCall(args[0][0], "lookup", (mapping, *args[0][1:]), node=node)
+        return self.dispatch("element.lookup", call, node)
 
     def call_args(self, node: cst.Call) -> tuple[tuple[Value, ...], dict[str, Value]] | None:
         positional: list[Value] = []
@@ -223,6 +244,9 @@ class Evaluator:
         if args is None or not any(_is_pandas(v) for v in (*args[0], *args[1].values())):
             return self.generic(node)
         positional, keywords = args
+        if positional and isinstance(positional[0], Column) and positional[0].element:
+            call = PandasCall(positional[0], name, positional[1:], keywords, node)
+            return self.dispatch(f"element.{name}", call, node)
         if name in _BUILTIN_RULES and positional and _is_pandas(positional[0]):
             call = PandasCall(positional[0], name, positional[1:], keywords, node)
             return self.dispatch(_BUILTIN_RULES[name].format(kind=_prefix(positional[0])), call, node)
@@ -267,9 +291,23 @@ class Evaluator:
             return PandasValue(code, sites=tuple(sites))
         return Opaque(code, sites=tuple(sites))
 
+    def _eval_IfExp(self, node: cst.IfExp) -> Value:
+        test = self.eval(node.test)
+        if not isinstance(test, Column):
+            return self.generic(node)
+        body, orelse = self.eval(node.body), self.eval(node.orelse)
+        call = PandasCall(test, "ifexp", (body, orelse), node=node)
+        return self.dispatch("element.ifexp", call, node)
+
     # -- subscripts -----------------------------------------------------------------------------
     def _eval_Subscript(self, node: cst.Subscript) -> Value:
         receiver = self.eval(node.value)
+        if isinstance(receiver, Opaque) and isinstance(receiver.const, dict) and len(node.slice) == 1 \
+                and isinstance(node.slice[0].slice, cst.Index):
+            key = self.eval(node.slice[0].slice.value)
+            if isinstance(key, Column) and key.element:
+                call = PandasCall(key, "lookup", (receiver,), node=node)
+                return self.dispatch("element.lookup", call, node)
         if not isinstance(receiver, (Frame, Column, Grouped, Indexer, Accessor)):
             return self.generic(node)
         keys: list[Value] = []
@@ -343,12 +381,15 @@ class Evaluator:
             reason = entry.advice if entry is not None and entry.status == "todo" else (
                 "porter has no rule for this API yet")
             return self.todo(key, call, node, reason, entry=entry)
-        ctx = RuleContext(key, entry, entry.confidence, schema_lookup=self.services.schema_lookup)
+        ctx = RuleContext(key, entry, entry.confidence, schema_lookup=self.services.schema_lookup,
+                          evaluate=self.evaluate_with)
         try:
             result = fn(call, ctx)
         except Unsupported as exc:
             return self.todo(key, call, node, exc.reason, entry=entry)
         status = "handover" if entry.status == "handover" or ctx.handover else "converted"
+        if ctx.todo_note is not None:
+            status = "todo"
         if status == "converted" and ctx.confidence < self.services.min_confidence:
             reason = (f"confidence {ctx.confidence:.2f} is below --min-confidence "
                       f"{self.services.min_confidence:.2f}")
@@ -357,8 +398,14 @@ class Evaluator:
             return self.todo(key, call, node, reason, entry=entry, suggestion=result.code.text)
         line, end_line = self.services.position(node)
         message = "; ".join(ctx.reasons) if ctx.reasons else _first_sentence(entry.notes)
+        if ctx.todo_note is not None:
+            message = ctx.todo_note
         site = SiteDraft(key, entry.rule or key, status, ctx.confidence, message, line, end_line)
         return result.with_sites(*_child_sites(call, result), site)
+
+    def evaluate_with(self, node: cst.BaseExpression, bindings: dict[str, Value]) -> Value:
+        """Evaluate `node` with extra names bound (lambda parameters)."""
+        return Evaluator({**self.env, **bindings}, self.services).eval(node)
 
     def todo(self, key: str, call: PandasCall, node: cst.CSTNode, reason: str, *,
              entry: MappingEntry | None = None, suggestion: str | None = None) -> Value:
@@ -411,6 +458,9 @@ class Evaluator:
             return Opaque(Code(self.source(node), _precedence(node)), node=node,
                           sites=tuple(rewriter.sites))
         text = self.source(new_node)  # type: ignore[arg-type]
+        if rewriter.pandas_inside:
+            # built on a value handed over to pandas: a pandas object, never a plain scalar
+            return PandasValue(Code(text, _precedence(node)), sites=tuple(rewriter.sites))
         return Opaque(Code(text, _precedence(node)), sites=tuple(rewriter.sites))
 
 
@@ -430,7 +480,7 @@ class _ChildRewriter(cst.CSTTransformer):
         self.changed = False
         self.sites: list[SiteDraft] = []
         self.replacements: dict[int, cst.BaseExpression] = {}
-        self.shadow_depth = 0
+        self.pandas_inside = False
 
     def on_visit(self, node: cst.CSTNode) -> bool:
         if node is self.root:
@@ -440,6 +490,9 @@ class _ChildRewriter(cst.CSTTransformer):
             return self._visit_scope(node)
         if isinstance(node, cst.FormattedStringExpression):
             self._replace(node.expression, display=True)
+            return False
+        if isinstance(node, cst.Arg):  # the keyword is a name, not an expression
+            self._replace(node.value, display=self.display)
             return False
         if isinstance(node, cst.BaseExpression):
             self._replace(node, display=self.display)
@@ -459,23 +512,32 @@ class _ChildRewriter(cst.CSTTransformer):
         if _is_pandas(value):
             value = (Opaque(handover.for_display(value), sites=value.sites) if display
                      else evaluator.handed_to_unknown(value, node))
+        if isinstance(value, PandasValue) and not display:
+            self.pandas_inside = True
         self.sites += value.sites
         original = evaluator.source(node)
         if value.code.text != original:
-            text = value.code.text if value.code.prec >= _precedence(node) else f"({value.code.text})"
-            self.replacements[id(node)] = cst.parse_expression(text)
+            replacement = cst.parse_expression(f"({value.code.text})")
+            keep_parens = value.code.prec >= _precedence(node) and "\n" not in value.code.text
+            if keep_parens or getattr(node, "lpar", None):
+                replacement = replacement.with_changes(lpar=[], rpar=[])
+                if "\n" in value.code.text or value.code.prec < _precedence(node):
+                    replacement = replacement.with_changes(lpar=[cst.LeftParen()], rpar=[cst.RightParen()])
+            self.replacements[id(node)] = replacement
             self.changed = True
 
     def on_leave(self, original: cst.CSTNode, updated: cst.CSTNode) -> Any:
         replacement = self.replacements.get(id(original))
         if replacement is not None:
-            return replacement.with_changes(lpar=original.lpar, rpar=original.rpar) \
-                if getattr(original, "lpar", None) else replacement
+            if getattr(original, "lpar", None):
+                return replacement.with_changes(lpar=original.lpar, rpar=original.rpar)
+            return replacement
         return updated
 
 
 # -- helpers ------------------------------------------------------------------------------------
 
+_TYPE_NAMES: dict[str, type] = {"str": str, "int": int, "float": float, "bool": bool}
 _FRAME_PROPERTIES = {"columns", "shape", "dtypes", "empty", "index", "values", "T", "size",
                      "ndim", "axes", "at", "iat", "attrs", "flags", "style", "plot"}
 _SERIES_PROPERTIES = {"values", "shape", "dtype", "name", "index", "size", "empty", "T",
@@ -496,7 +558,7 @@ def _prefix(value: Value) -> str:
     if isinstance(value, Frame):
         return "frame"
     if isinstance(value, Column):
-        return "series"
+        return "element" if value.element else "series"
     if isinstance(value, Grouped):
         return "groupby"
     if isinstance(value, Accessor):

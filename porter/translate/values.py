@@ -78,6 +78,7 @@ class Column(Value):
     null_is_false: bool = field(default=False, kw_only=True)
     refs: frozenset[str] = field(default=frozenset(), kw_only=True)
     versions: tuple[tuple[str, int], ...] = field(default=(), kw_only=True)
+    element: bool = field(default=False, kw_only=True)  # the parameter of a lambda: one value
 
 
 @dataclass(frozen=True)

@@ -1,0 +1,115 @@
+"""Helpers shared by the tests: convert snippets, run them, compare results.
+
+pandas is the reference implementation: a differential check runs the original snippet with
+pandas and the converted snippet with Polars, and compares what they computed.
+"""
+
+from __future__ import annotations
+
+import math
+import textwrap
+from typing import Any
+
+import pandas as pd
+import polars as pl
+
+from porter.api import convert_source
+from porter.model import FileResult, Options
+
+
+def convert(source: str, **options: Any) -> FileResult:
+    return convert_source(textwrap.dedent(source), options=Options(**options))
+
+
+def converted_text(source: str, **options: Any) -> str:
+    return convert(source, **options).converted_text
+
+
+def run(source: str) -> dict[str, Any]:
+    namespace: dict[str, Any] = {"__name__": "__porter_test__"}
+    exec(compile(source, "<snippet>", "exec"), namespace)  # noqa: S102 - test snippets only
+    return namespace
+
+
+def rows(value: Any) -> tuple[list[str], list[tuple[Any, ...]]]:
+    """A table as (column names, rows) the way a person reads it: pandas' meaningful index
+    becomes columns, Polars frames are collected, missing values are None."""
+    if isinstance(value, pl.LazyFrame):
+        value = value.collect()
+    if isinstance(value, pl.Series):
+        value = value.to_frame()
+    if isinstance(value, pd.Series):
+        value = value.to_frame(name=value.name if value.name is not None else "0")
+    if isinstance(value, pd.DataFrame):
+        if isinstance(value.index, pd.MultiIndex) or value.index.name is not None:
+            value = value.reset_index()
+        else:
+            value = value.reset_index(drop=True)
+        columns = [str(c) for c in value.columns]
+        data = [tuple(_cell(v) for v in row) for row in value.itertuples(index=False, name=None)]
+        return columns, data
+    if isinstance(value, pl.DataFrame):
+        return [str(c) for c in value.columns], [tuple(_cell(v) for v in r) for r in value.iter_rows()]
+    raise TypeError(f"not a table: {type(value)}")
+
+
+def _cell(value: Any) -> Any:
+    if value is None or value is pd.NA or value is pd.NaT:
+        return None
+    if isinstance(value, float) and math.isnan(value):
+        return None
+    if hasattr(value, "item") and not isinstance(value, (str, bytes)):
+        try:
+            value = value.item()
+        except (ValueError, AttributeError):
+            pass
+    if isinstance(value, pd.Timestamp):
+        return value.to_pydatetime()
+    if isinstance(value, bool):
+        return value
+    if isinstance(value, int):
+        return float(value)
+    return value
+
+
+def same_cells(a: Any, b: Any, rel: float = 1e-9) -> bool:
+    if isinstance(a, float) and isinstance(b, float):
+        return math.isclose(a, b, rel_tol=rel, abs_tol=1e-12)
+    return a == b
+
+
+def assert_same_table(expected: Any, actual: Any) -> None:
+    exp_cols, exp_rows = rows(expected)
+    act_cols, act_rows = rows(actual)
+    assert exp_cols == act_cols, f"columns differ: pandas {exp_cols}, polars {act_cols}"
+    assert len(exp_rows) == len(act_rows), (
+        f"row counts differ: pandas {len(exp_rows)}, polars {len(act_rows)}\n"
+        f"pandas: {exp_rows[:8]}\npolars: {act_rows[:8]}")
+    for i, (e, a) in enumerate(zip(exp_rows, act_rows)):
+        assert all(same_cells(x, y) for x, y in zip(e, a)), f"row {i} differs: pandas {e}, polars {a}"
+
+
+def assert_same_value(expected: Any, actual: Any) -> None:
+    if isinstance(expected, (pd.DataFrame, pd.Series)):
+        assert_same_table(expected, actual)
+        return
+    if isinstance(actual, (pl.Series, pl.DataFrame, pl.LazyFrame)):
+        assert_same_table(pd.Series(list(expected), name=getattr(expected, "name", None))
+                          if not isinstance(expected, pd.DataFrame) else expected, actual)
+        return
+    assert same_cells(_cell(expected), _cell(actual)), f"pandas {expected!r}, polars {actual!r}"
+
+
+def differential(source: str, *names: str, **options: Any) -> FileResult:
+    """Run `source` with pandas (the reference) and its conversion with Polars, then compare
+    the variables `names` (default: `result`). Returns the conversion for further checks."""
+    source = textwrap.dedent(source)
+    result = convert_source(source, options=Options(**options))
+    expected = run(source)
+    actual = run(result.converted_text)
+    for name in names or ("result",):
+        try:
+            assert_same_value(expected[name], actual[name])
+        except AssertionError as exc:
+            raise AssertionError(f"{name}: {exc}\n--- converted ---\n{result.converted_text}") from None
+    return result
