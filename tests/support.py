@@ -7,6 +7,8 @@ pandas and the converted snippet with Polars, and compares what they computed.
 from __future__ import annotations
 
 import math
+from pathlib import Path
+import subprocess
 import textwrap
 from typing import Any
 
@@ -113,3 +115,26 @@ def differential(source: str, *names: str, **options: Any) -> FileResult:
         except AssertionError as exc:
             raise AssertionError(f"{name}: {exc}\n--- converted ---\n{result.converted_text}") from None
     return result
+
+
+# -- running whole scripts ------------------------------------------------------------------
+
+def read_table(path: Path) -> pd.DataFrame | None:
+    """An output file read back as a table (None when it is not a table porter compares)."""
+    if path.suffix == ".csv":
+        return pd.read_csv(path)
+    if path.suffix == ".parquet":
+        return pd.read_parquet(path)
+    return None
+
+
+def run_script(script: Path, workdir: Path, timeout: float = 120) -> subprocess.CompletedProcess[str]:
+    import subprocess
+    import sys
+    return subprocess.run([sys.executable, script.name], cwd=workdir, capture_output=True,
+                          text=True, timeout=timeout)
+
+
+def outputs(before: set[Path], workdir: Path) -> dict[str, Path]:
+    return {str(p.relative_to(workdir)): p for p in workdir.rglob("*")
+            if p.is_file() and p.relative_to(workdir) not in before}

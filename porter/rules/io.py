@@ -204,10 +204,34 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     na_rep = call.const("na_rep", None, "")
     if na_rep:
         kwargs["null_value"] = na_rep
-    if frame.dtypes and not ({"bool", "datetime"} & {t for _, t in frame.dtypes}) \
-            and frame.columns is not None and len(frame.dtypes) == len(frame.columns):
-        ctx.confidence = max(ctx.confidence, 0.98)
+    text = csv_text_columns(frame)
+    if text:
+        frame = derive(frame, frame.code.method("with_columns", *text), same_rows=True)
+    if frame.columns is not None and len(frame.dtypes) == len(frame.columns):
+        ctx.confidence = max(ctx.confidence, 0.98)  # every column's type is known and handled
     return Scalar(frame.code.method("sink_csv", target.code, **kwargs))
+
+
+def csv_text_columns(frame: Frame) -> list[Code]:
+    """Columns whose text pandas writes differently, written the pandas way.
+
+    pandas writes booleans as True/False, and a datetime column as dates only when every value
+    is at midnight, without fractions when none has microseconds (per column, from the data).
+    """
+    out = []
+    for name, kind in frame.dtypes:
+        column = emit.col(name)
+        if kind == "bool":
+            out.append(column.method("replace_strict", {True: "True", False: "False"}))
+        elif kind == "datetime":
+            midnight = emit.binop(column, "==", column.attr("dt").method("truncate", "1d")).method("all")
+            whole = emit.binop(column.attr("dt").method("microsecond"), "==", 0).method("all")
+            out.append(
+                emit.pl("when", midnight).method("then", column.attr("dt").method("strftime", "%Y-%m-%d"))
+                .method("when", whole).method("then", column.attr("dt").method("strftime", "%Y-%m-%d %H:%M:%S"))
+                .method("otherwise", column.attr("dt").method("strftime", "%Y-%m-%d %H:%M:%S%.6f"))
+                .method("alias", name))
+    return out
 
 
 @rule("frame.to_parquet", "series.to_parquet")

@@ -455,6 +455,9 @@ class Evaluator:
         rewriter = _ChildRewriter(self, node, display)
         new_node = node.visit(rewriter)
         if not rewriter.changed:
+            if rewriter.pandas_inside:
+                return PandasValue(Code(self.source(node), _precedence(node)),
+                                   sites=tuple(rewriter.sites))
             return Opaque(Code(self.source(node), _precedence(node)), node=node,
                           sites=tuple(rewriter.sites))
         text = self.source(new_node)  # type: ignore[arg-type]
@@ -527,6 +530,16 @@ class _ChildRewriter(cst.CSTTransformer):
             self.changed = True
 
     def on_leave(self, original: cst.CSTNode, updated: cst.CSTNode) -> Any:
+        # nodes whose children were rewritten without being visited
+        if isinstance(original, cst.Arg) and id(original.value) in self.replacements:
+            return updated.with_changes(value=self.replacements[id(original.value)])
+        if isinstance(original, cst.FormattedStringExpression) \
+                and id(original.expression) in self.replacements:
+            return updated.with_changes(expression=self.replacements[id(original.expression)])
+        if isinstance(original, (cst.ListComp, cst.SetComp, cst.DictComp, cst.GeneratorExp)) \
+                and id(original.for_in.iter) in self.replacements:
+            for_in = updated.for_in.with_changes(iter=self.replacements[id(original.for_in.iter)])
+            return updated.with_changes(for_in=for_in)
         replacement = self.replacements.get(id(original))
         if replacement is not None:
             if getattr(original, "lpar", None):

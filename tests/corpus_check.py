@@ -1,0 +1,71 @@
+"""Convert a corpus case, run both versions in copies of its folder, compare every output."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from pathlib import Path
+import shutil
+import tempfile
+
+from porter.api import convert_file
+from porter.model import FileResult
+from support import assert_same_table, outputs, read_table, run_script
+
+CORPUS = Path(__file__).resolve().parent.parent / "corpus"
+
+
+def cases() -> list[str]:
+    return sorted(p.name for p in CORPUS.iterdir() if (p / f"{p.name}.py").is_file())
+
+
+@dataclass
+class CaseRun:
+    result: FileResult
+    pandas_files: dict[str, Path] = field(default_factory=dict)
+    polars_files: dict[str, Path] = field(default_factory=dict)
+    pandas_stderr: str = ""
+    polars_stderr: str = ""
+
+
+def run_case(name: str, tmp: Path) -> CaseRun:
+    source = CORPUS / name
+    result = convert_file(source / f"{name}.py")
+    sides = {}
+    for side in ("pandas", "polars"):
+        work = tmp / side
+        shutil.copytree(source, work)
+        if side == "polars":
+            (work / f"{name}.py").write_text(result.converted_text, encoding="utf-8")
+        before = {p.relative_to(work) for p in work.rglob("*")}
+        proc = run_script(work / f"{name}.py", work)
+        if proc.returncode != 0:
+            raise AssertionError(f"{side} side of {name} failed:\n{proc.stderr[-3000:]}")
+        sides[side] = (outputs(before, work), proc.stderr)
+    return CaseRun(result, sides["pandas"][0], sides["polars"][0], sides["pandas"][1], sides["polars"][1])
+
+
+def compare_case(run: CaseRun) -> None:
+    assert run.pandas_files, "the pandas script wrote nothing"
+    assert set(run.pandas_files) == set(run.polars_files), (
+        f"different outputs: pandas {sorted(run.pandas_files)}, polars {sorted(run.polars_files)}")
+    for name, path in sorted(run.pandas_files.items()):
+        expected = read_table(path)
+        actual = read_table(run.polars_files[name])
+        if expected is None:
+            assert path.read_bytes() == run.polars_files[name].read_bytes(), f"{name} differs"
+            continue
+        try:
+            assert_same_table(expected, actual)
+        except AssertionError as exc:
+            raise AssertionError(f"{name}: {exc}") from None
+
+
+if __name__ == "__main__":
+    import sys
+    for case in sys.argv[1:] or cases():
+        with tempfile.TemporaryDirectory() as tmp:
+            try:
+                compare_case(run_case(case, Path(tmp)))
+                print(f"{case}: same")
+            except AssertionError as exc:
+                print(f"{case}: DIFFERENT\n   {str(exc)[:1500]}")
