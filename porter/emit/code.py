@@ -40,7 +40,7 @@ class Code:
         return self.text if self.prec >= min_prec else f"({self.text})"
 
     # -- building ---------------------------------------------------------------------------
-    def method(self, name: str, *args: object, **kwargs: object) -> Code:
+    def method(self, name: str, /, *args: object, **kwargs: object) -> Code:
         step = f".{name}({arglist(args, kwargs)})"
         if self.prec >= ATOM:
             base = self.base if self.base is not None else self.text
@@ -113,7 +113,7 @@ def arglist(args: Iterable[object], kwargs: Mapping[str, object] | None = None) 
     return ", ".join(parts)
 
 
-def call(func: str, *args: object, **kwargs: object) -> Code:
+def call(func: str, /, *args: object, **kwargs: object) -> Code:
     return Code(f"{func}({arglist(args, kwargs)})", ATOM)
 
 
@@ -142,7 +142,7 @@ def col(name: str | Code) -> Code:
     return call("pl.col", name)
 
 
-def pl(name: str, *args: object, **kwargs: object) -> Code:
+def pl(name: str, /, *args: object, **kwargs: object) -> Code:
     return call(f"pl.{name}", *args, **kwargs)
 
 
@@ -188,10 +188,50 @@ def layout_chain(code: Code, indent: str, prefix: str, suffix: str = "") -> str:
     if "\n" in code.text and not _parses(code.text):
         code = Code(f"({code.text})")
     one_line = f"{prefix}{code.text}{suffix}"
-    if len(indent) + len(one_line) <= LINE_LENGTH or code.base is None or len(code.steps) < 2:
+    if len(indent) + len(one_line) <= LINE_LENGTH:
         return one_line
-    inner = indent + "    "
-    lines = [f"{prefix}(", inner + code.base]
-    lines += [inner + step for step in code.steps]
-    lines.append(f"{indent}){suffix}")
+    if code.base is None or len(code.steps) < 2:
+        return _split_call(code.text, prefix, suffix) or one_line
+    # continuation lines are relative: libcst adds the enclosing block's indentation
+    lines = [f"{prefix}(", "    " + code.base]
+    for step in code.steps:
+        lines += _split_step(step, LINE_LENGTH - len(indent) - 4)
+    lines.append(f"){suffix}")
     return "\n".join(lines)
+
+
+def _split_call(text: str, prefix: str, suffix: str) -> str | None:
+    """A single call too long for its line, one argument per line."""
+    if "\n" in text:
+        return None
+    parts = _call_parts("", text)
+    if parts is None:
+        return None
+    func, args = parts
+    return "\n".join([f"{prefix}{func}(", *(f"    {a}," for a in args), f"){suffix}"])
+
+
+def _call_parts(prefix: str, text: str) -> tuple[str, list[str]] | None:
+    import libcst as cst
+
+    try:
+        call = cst.parse_expression(prefix + text)
+    except cst.ParserSyntaxError:
+        return None
+    if not isinstance(call, cst.Call) or not call.args or call.lpar:
+        return None
+    module = cst.Module([])
+    args = [module.code_for_node(a.with_changes(comma=cst.MaybeSentinel.DEFAULT)).strip()
+            for a in call.args]
+    return module.code_for_node(call.func)[len(prefix):], args
+
+
+def _split_step(step: str, width: int) -> list[str]:
+    """One chain step; a call too long for its line gets one argument per line."""
+    if len(step) <= width:
+        return ["    " + step]
+    parts = _call_parts("_", step)
+    if parts is None:
+        return ["    " + step]
+    method, args = parts
+    return [f"    {method}(", *(f"        {a}," for a in args), "    )"]

@@ -137,6 +137,7 @@ class _Walker:
         self.sites: list[SiteDraft] = []
         self.returns: dict[str, list[Value]] = {}
         self.function: str | None = None
+        self.header_sites: list[SiteDraft] = []  # sites in the header of the compound statement at hand
 
     # blocks ---------------------------------------------------------------------------------
     def block(self, body: Any, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
@@ -158,6 +159,17 @@ class _Walker:
         return cst.IndentedBlock(body=body), env
 
     def statement(self, stmt: Any, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
+        outer, self.header_sites = self.header_sites, []
+        new, env = self._statement(stmt, env, unit, indent)
+        header_sites, self.header_sites = self.header_sites, outer
+        if header_sites and len(new) == 1 and hasattr(new[0], "leading_lines") \
+                and not isinstance(new[0], cst.SimpleStatementLine):
+            comments = _todo_comments(header_sites, new[0])
+            if comments:
+                new = [new[0].with_changes(leading_lines=[*new[0].leading_lines, *comments])]
+        return new, env
+
+    def _statement(self, stmt: Any, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
         env = dict(env)
         if isinstance(stmt, cst.SimpleStatementLine):
             return self.simple_line(stmt, env, indent), env
@@ -248,6 +260,7 @@ class _Walker:
             value = Evaluator(env, self.services).handed_to_unknown(value, expr) \
                 if not isinstance(value, (Frame, Column)) else value
         self.record(value.sites)
+        self.header_sites.extend(value.sites)
         text = value.code.text
         if text == self.services.code_for(expr):
             return expr
@@ -507,7 +520,7 @@ def _merge(a: dict[str, Value], b: dict[str, Value]) -> dict[str, Value]:
     return merged
 
 
-def _todo_comments(sites: list[SiteDraft], line: cst.SimpleStatementLine) -> list[cst.EmptyLine]:
+def _todo_comments(sites: list[SiteDraft], line: Any) -> list[cst.EmptyLine]:
     existing = {el.comment.value for el in line.leading_lines if el.comment is not None}
     comments = []
     for site in sites:

@@ -78,13 +78,19 @@ class Evaluator:
     def __init__(self, env: dict[str, Value], services: Services) -> None:
         self.env = env
         self.services = services
+        # The names in scope do not change while one statement is evaluated, so each node is
+        # evaluated once (rewriting a node looks at its children again).
+        self._memo: dict[int, tuple[cst.CSTNode, Value]] = {}
 
     # -- entry points ---------------------------------------------------------------------------
     def eval(self, node: cst.BaseExpression) -> Value:
+        known = self._memo.get(id(node))
+        if known is not None and known[0] is node:
+            return known[1]
         method = getattr(self, f"_eval_{type(node).__name__}", None)
-        if method is not None:
-            return method(node)
-        return self.generic(node)
+        value = method(node) if method is not None else self.generic(node)
+        self._memo[id(node)] = (node, value)
+        return value
 
     def source(self, node: cst.CSTNode) -> str:
         return self.services.code_for(node)
@@ -520,12 +526,12 @@ class _ChildRewriter(cst.CSTTransformer):
         self.sites += value.sites
         original = evaluator.source(node)
         if value.code.text != original:
-            replacement = cst.parse_expression(f"({value.code.text})")
-            keep_parens = value.code.prec >= _precedence(node) and "\n" not in value.code.text
-            if keep_parens or getattr(node, "lpar", None):
-                replacement = replacement.with_changes(lpar=[], rpar=[])
-                if "\n" in value.code.text or value.code.prec < _precedence(node):
-                    replacement = replacement.with_changes(lpar=[cst.LeftParen()], rpar=[cst.RightParen()])
+            try:
+                replacement = cst.parse_expression(value.code.text)
+            except cst.ParserSyntaxError:  # a chain laid out over several lines
+                replacement = cst.parse_expression(f"({value.code.text})")
+            if value.code.prec < _precedence(node) and not replacement.lpar:
+                replacement = replacement.with_changes(lpar=[cst.LeftParen()], rpar=[cst.RightParen()])
             self.replacements[id(node)] = replacement
             self.changed = True
 

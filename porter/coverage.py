@@ -1,0 +1,82 @@
+"""Generate docs/coverage.md from the mapping table and the rules' docstrings.
+
+    python -m porter.coverage            # rewrite docs/coverage.md
+    python -m porter.coverage --check    # exit 1 when docs/coverage.md is out of date
+"""
+
+from __future__ import annotations
+
+import argparse
+from collections import Counter
+import inspect
+from pathlib import Path
+import sys
+
+from porter.mapping import MappingTable, load_table
+from porter.rules import registry
+
+DOC = Path(__file__).resolve().parent.parent / "docs" / "coverage.md"
+
+
+def _cell(text: str) -> str:
+    return text.replace("|", "\\|").replace("\n", " ").strip()
+
+
+def render(table: MappingTable) -> str:
+    rules = registry()
+    entries = sorted(table, key=lambda e: (e.area, e.key))
+    counts = Counter(e.status for e in entries)
+    lines = [
+        "# Coverage",
+        "",
+        "Generated from `mappings/*.toml` and the rules' docstrings by `python -m porter.coverage`;",
+        "do not edit by hand (a test fails when this page and the table disagree).",
+        "",
+        f"{len(entries)} pandas APIs: {counts['ported']} ported, {counts['handover']} handed over "
+        f"to pandas on purpose, {counts['todo']} marked TODO with advice.",
+        "",
+        "Confidence is the probability that the rewrite gives pandas' result on any valid input; a",
+        "rule lowers it for a particular site when it cannot rule a difference out, and says why.",
+        "",
+    ]
+    for area in sorted({e.area for e in entries}):
+        lines += [f"## {area}", "", "| pandas | status | Polars | confidence | handles / advice |",
+                  "|---|---|---|---|---|"]
+        for entry in (e for e in entries if e.area == area):
+            detail = entry.advice if entry.status == "todo" else "; ".join(entry.handles)
+            if entry.notes:
+                detail = f"{detail}. {entry.notes}" if detail else entry.notes
+            confidence = "" if entry.status == "todo" else f"{entry.confidence:.2f}"
+            lines.append(f"| `{entry.key}` | {entry.status} | {_cell(entry.polars or '')} | "
+                         f"{confidence} | {_cell(detail)} |")
+        lines.append("")
+    lines += ["## Rules", ""]
+    seen: set[str] = set()
+    for entry in entries:
+        fn = rules.get(entry.key)
+        if fn is None or fn.__name__ in seen:
+            continue
+        seen.add(fn.__name__)
+        keys = sorted(k for k, f in rules.items() if f is fn)
+        doc = inspect.getdoc(fn) or ""
+        lines += [f"### `{entry.rule}` ({', '.join(f'`{k}`' for k in keys)})", "", doc, ""]
+    return "\n".join(lines).rstrip() + "\n"
+
+
+def main(argv: list[str] | None = None) -> int:
+    parser = argparse.ArgumentParser(prog="python -m porter.coverage")
+    parser.add_argument("--check", action="store_true")
+    args = parser.parse_args(argv)
+    text = render(load_table())
+    if args.check:
+        if not DOC.exists() or DOC.read_text(encoding="utf-8") != text:
+            print(f"{DOC} is out of date: run python -m porter.coverage", file=sys.stderr)
+            return 1
+        return 0
+    DOC.parent.mkdir(exist_ok=True)
+    DOC.write_text(text, encoding="utf-8")
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())
