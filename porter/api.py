@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from pathlib import Path
+import re
 
 import libcst as cst
 
@@ -11,6 +12,11 @@ from porter.model import ConversionError, FileResult, Options, Site, SiteDraft
 from porter.rules import registry
 from porter.translate.engine import translate_module
 from porter.translate.evaluate import Services
+
+
+# Without these in the script, no frame can hold a datetime column (CSV scans do not infer dates).
+DATETIME_HINTS = re.compile(r"parse_dates|to_datetime|read_parquet|read_excel|read_json|read_sql|"
+                            r"Timestamp|datetime|date_range|\.dt\.|astype\(.datetime")
 
 
 def parse(text: str, path: str | None = None) -> cst.Module:
@@ -37,6 +43,7 @@ def convert_source(text: str, *, path: str | None = None, options: Options | Non
         position=lambda node: (0, 0),
         min_confidence=options.min_confidence,
         schema_lookup=schema_lookup,
+        datetimes_possible=bool(DATETIME_HINTS.search(text)),
     )
     translation = translate_module(module, services)
     converted = translation.module.code

@@ -44,7 +44,10 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     (infer_schema_length=None), sep, usecols in file order, dtype, parse_dates, na_values,
     nrows, skiprows (a count).
     Caveats: index_col, header/names, converters, encodings other than UTF-8 and a list of
-    skipped rows are TODOs.
+    skipped rows are TODOs. With nrows, Polars still infers types from the whole file (0.9).
+    parse_dates lets Polars guess the format, and it reads 05/03/2024 day first where pandas
+    reads it month first (0.85). An empty header is named "Unnamed: n" only when --data shows
+    it; a repeated header name is a TODO then.
     """
     known = {"filepath_or_buffer", "sep", "delimiter", "usecols", "dtype", "parse_dates",
              "na_values", "nrows", "skiprows", "encoding", *READ_CSV_IGNORED}
@@ -97,9 +100,20 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     nrows = call.const("nrows", None, None)
     if nrows is not None:
         kwargs["n_rows"] = nrows
+        # Polars infers column types from the whole file even when it reads n rows (and parses
+        # past them), pandas only from the rows it reads.
+        ctx.lower("nrows: pandas infers column types from the rows it reads, Polars from the "
+                  "whole file (a column whose later rows hold text is read as text)", 0.9)
 
     code = emit.pl("scan_csv", source.code, **kwargs)
     schema = ctx.input_schema("csv", source.const if isinstance(source, Opaque) else None, options)
+    if schema and any(re.search(r"_duplicated_\d+$", c) for c in schema):
+        raise ctx.todo("the header repeats a name: pandas names the copy 'x.1' (an empty one "
+                       "'Unnamed: n'), Polars '_duplicated_n'")
+    unnamed = {c: f"Unnamed: {i}" for i, c in enumerate(schema or {}) if c == ""}
+    if unnamed:  # an empty header (a written index): pandas names it by its position
+        code = code.method("rename", unnamed)
+        schema = {unnamed.get(c, c): kind for c, kind in schema.items()}  # type: ignore[union-attr]
     columns = tuple(schema) if schema else None
     for column, kind in (schema or {}).items():
         dtypes.setdefault(column, kind)
@@ -204,7 +218,7 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     na_rep = call.const("na_rep", None, "")
     if na_rep:
         kwargs["null_value"] = na_rep
-    text = csv_text_columns(frame)
+    text = csv_text_columns(frame, ctx)
     if text:
         frame = derive(frame, frame.code.method("with_columns", *text), same_rows=True)
     if frame.columns is not None and len(frame.dtypes) == len(frame.columns):
@@ -212,25 +226,27 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     return Scalar(frame.code.method("sink_csv", target.code, **kwargs))
 
 
-def csv_text_columns(frame: Frame) -> list[Code]:
+def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
     """Columns whose text pandas writes differently, written the pandas way.
 
     pandas writes booleans as True/False, and a datetime column as dates only when every value
-    is at midnight, without fractions when none has microseconds (per column, from the data).
+    is at midnight, without fractions when none has microseconds (decided per column from the
+    data, which the expression does too).
     """
+    kinds = {t for _, t in frame.dtypes}
+    complete = frame.columns is not None and len(frame.dtypes) == len(frame.columns)
     out = []
-    for name, kind in frame.dtypes:
-        column = emit.col(name)
-        if kind == "bool":
-            out.append(column.method("replace_strict", {True: "True", False: "False"}))
-        elif kind == "datetime":
-            midnight = emit.binop(column, "==", column.attr("dt").method("truncate", "1d")).method("all")
-            whole = emit.binop(column.attr("dt").method("microsecond"), "==", 0).method("all")
-            out.append(
-                emit.pl("when", midnight).method("then", column.attr("dt").method("strftime", "%Y-%m-%d"))
-                .method("when", whole).method("then", column.attr("dt").method("strftime", "%Y-%m-%d %H:%M:%S"))
-                .method("otherwise", column.attr("dt").method("strftime", "%Y-%m-%d %H:%M:%S%.6f"))
-                .method("alias", name))
+    if "bool" in kinds:
+        out.append(emit.atom("pl.selectors.boolean()").method(
+            "replace_strict", {True: "True", False: "False"}))
+    if "datetime" in kinds or (ctx.datetimes_possible and not complete):
+        stamp = emit.atom("pl.selectors.datetime()")
+        midnight = emit.binop(stamp, "==", stamp.attr("dt").method("truncate", "1d")).method("all")
+        whole = emit.binop(stamp.attr("dt").method("microsecond"), "==", 0).method("all")
+        out.append(
+            emit.pl("when", midnight).method("then", stamp.attr("dt").method("strftime", "%Y-%m-%d"))
+            .method("when", whole).method("then", stamp.attr("dt").method("strftime", "%Y-%m-%d %H:%M:%S"))
+            .method("otherwise", stamp.attr("dt").method("strftime", "%Y-%m-%d %H:%M:%S%.6f")))
     return out
 
 

@@ -78,6 +78,7 @@ class RuleContext:
     schema_lookup: Any = None  # (reader, path, options) -> {column: dtype} from --data, or None
     evaluate: Any = None  # (node, {name: value}) -> Value, for lambda bodies
     todo_note: str | None = None  # the rewrite is written, but the site still needs a person
+    datetimes_possible: bool = True  # the script makes or reads datetimes somewhere
 
     def needs_review(self, reason: str) -> None:
         """Keep the rewrite but report the site as a TODO (for example a hand-back from pandas)."""

@@ -3,6 +3,7 @@ rewritten statements (with TODO markers) back into the module."""
 
 from __future__ import annotations
 
+import ast
 from dataclasses import dataclass, field, replace
 from typing import Any
 
@@ -138,6 +139,8 @@ class _Walker:
         self.returns: dict[str, list[Value]] = {}
         self.function: str | None = None
         self.header_sites: list[SiteDraft] = []  # sites in the header of the compound statement at hand
+        self.statement_key = 0  # the simple statement being rewritten
+        self.loop_depth = 0
 
     # blocks ---------------------------------------------------------------------------------
     def block(self, body: Any, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
@@ -238,6 +241,7 @@ class _Walker:
         else:
             changes["test"] = self.header(stmt.test, env, stmt)
             loop_env = dict(env)
+        self.loop_depth += 1
         # A second round through the body sees what the first round changed.
         emit_code, self.emit_code = self.emit_code, False
         saved = len(self.sites)
@@ -246,6 +250,7 @@ class _Walker:
         self.emit_code = emit_code
         widened = _merge(loop_env, after)
         body, after = self.indented(stmt.body, widened, unit, indent)
+        self.loop_depth -= 1
         changes["body"] = body
         if stmt.orelse is not None:
             else_body, after = self.indented(stmt.orelse.body, after, unit, indent)
@@ -276,10 +281,14 @@ class _Walker:
     def simple_line(self, line: cst.SimpleStatementLine, env: dict[str, Value], indent: str) -> list[Any]:
         texts: list[str | None] = []
         sites: list[SiteDraft] = []
+        before = dict(env)
+        self.statement_key = id(line)
         for small in line.body:
             text, new_sites = self.small(small, env, indent)
             texts.append(text)
             sites += new_sites
+            if text is not None:
+                self.count_consumers(text, before, id(small))
         self.record(tuple(sites))
         todo_lines = _todo_comments(sites, line)
         if all(t is None for t in texts) and not todo_lines:
@@ -298,6 +307,26 @@ class _Walker:
                 parsed = parsed.with_changes(trailing_whitespace=line.trailing_whitespace)
             new_lines.append(parsed)
         return new_lines
+
+    def count_consumers(self, text: str, env: dict[str, Value], statement: int) -> None:
+        """Remember which named frames this statement computes (collects or writes)."""
+        if ".collect()" not in text and ".sink_" not in text:
+            return
+        try:
+            tree = ast.parse(text)
+        except SyntaxError:
+            return
+        for node in ast.walk(tree):
+            value = env.get(node.id) if isinstance(node, ast.Name) else None
+            if isinstance(value, Frame) and value.binding is not None:
+                uses = self.services.consumers.setdefault(value.binding, set())
+                uses.add((statement, 0))
+                if self.loop_depth:  # runs once per iteration
+                    uses.add((statement, 1))
+
+    def computed_once(self) -> bool:
+        """A frame whose data several statements compute is collected once where it is made."""
+        return len(self.services.consumers.get(self.statement_key, ())) >= 2
 
     def small(self, stmt: cst.BaseSmallStatement, env: dict[str, Value], indent: str) -> tuple[str | None, list[SiteDraft]]:
         """Rewrite one small statement; None when it stays as written."""
@@ -445,7 +474,9 @@ class _Walker:
         """`name = value`: remember what the name now holds and write the assignment."""
         code = value.code
         if isinstance(value, Frame):
-            env[name] = replace(value, code=emit.atom(name), sites=())
+            env[name] = replace(value, code=emit.atom(name), sites=(), binding=self.statement_key)
+            if self.emit_code and self.computed_once() and not _is_collected(code):
+                code = code.method("collect").method("lazy")
         elif isinstance(value, Column):
             frame_name = value.frame.code.text
             if frame_name in env and isinstance(env[frame_name], Frame) \
@@ -477,6 +508,10 @@ class _Walker:
             code = Evaluator(env, self.services).handed_to_unknown(value, cst.Name(name)).code
             env[name] = PandasValue(emit.atom(name))
         return emit.layout_chain(code, indent, f"{name} = "), list(value.sites)
+
+
+def _is_collected(code: Code) -> bool:
+    return code.text.endswith(".collect().lazy()")
 
 
 def _index_of(target: cst.Subscript) -> cst.BaseExpression:

@@ -72,6 +72,9 @@ class Services:
     call_sites: dict[str, list[tuple[Value, ...]]] = field(default_factory=dict)
     inside_from_pandas: Callable[[cst.CSTNode], bool] = lambda node: False
     schema_lookup: Callable[[str, str, dict[str, Any]], dict[str, str] | None] | None = None
+    datetimes_possible: bool = True
+    # statements that compute each named frame's data, by the assignment that named it
+    consumers: dict[int, set[tuple[int, int]]] = field(default_factory=dict)
 
 
 class Evaluator:
@@ -388,7 +391,8 @@ class Evaluator:
                 "porter has no rule for this API yet")
             return self.todo(key, call, node, reason, entry=entry)
         ctx = RuleContext(key, entry, entry.confidence, schema_lookup=self.services.schema_lookup,
-                          evaluate=self.evaluate_with)
+                          evaluate=self.evaluate_with,
+                          datetimes_possible=self.services.datetimes_possible)
         try:
             result = fn(call, ctx)
         except Unsupported as exc:

@@ -55,6 +55,7 @@ class Frame(Value):
     versions: tuple[tuple[str, int], ...] = field(default=(), kw_only=True)
     index: tuple[str, ...] = field(default=(), kw_only=True)
     labels_intact: bool = field(default=True, kw_only=True)
+    binding: int | None = field(default=None, kw_only=True)  # the assignment that named it
 
     def dtype(self, column: str) -> str | None:
         return dict(self.dtypes).get(column)

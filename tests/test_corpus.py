@@ -1,0 +1,21 @@
+"""Every corpus script converts, and the converted script writes the same tables as pandas.
+
+pandas is the reference: each case runs the original script with pandas and the converted one
+with Polars, each in its own copy of the case folder, and compares every file they write.
+"""
+
+from __future__ import annotations
+
+import pytest
+
+from corpus_check import cases, compare_case, run_case
+
+
+def test_corpus_is_big_enough():
+    assert len(cases()) >= 12
+
+
+@pytest.mark.parametrize("name", cases())
+def test_corpus_case_gives_the_same_outputs(name, tmp_path):
+    run = run_case(name, tmp_path)
+    compare_case(run)
