@@ -109,17 +109,22 @@ def _learn_functions(services: Services, returns: dict[str, list[Value]]) -> dic
     for name, function in services.functions.items():
         calls = services.call_sites.get(name, [])
         frame_params = set()
+        schemas = []
         for i, param in enumerate(function.params):
             kinds = [c[i] if i < len(c) else None for c in calls]
             if kinds and all(isinstance(k, Frame) for k in kinds):
                 frame_params.add(param)
+                shapes = {(k.columns, tuple(sorted(k.dtypes))) for k in kinds}  # type: ignore[union-attr]
+                if len(shapes) == 1:
+                    schemas.append((param, shapes.pop()))
         returned = returns.get(name, [])
         template: Value | None = None
         if returned and all(isinstance(r, Frame) for r in returned):
             template = Frame(Code(""), rows=fresh_token(), labels_intact=False)
         elif returned and all(isinstance(r, (Column, Scalar)) for r in returned):
             template = returned[0]
-        updated[name] = replace(function, frame_params=frozenset(frame_params), returns=template)
+        updated[name] = replace(function, frame_params=frozenset(frame_params), returns=template,
+                                param_schemas=tuple(schemas))
     # keep templates stable between passes so the fixpoint check can succeed
     for name, function in updated.items():
         old = services.functions[name]
@@ -148,6 +153,8 @@ class _Walker:
         for stmt in body:
             new, env = self.statement(stmt, env, unit, indent)
             out.extend(new)
+        if self.emit_code:
+            out = _batch_writes(out, body)
         return out, env
 
     def indented(self, block: cst.BaseSuite, env: dict[str, Value], unit: str,
@@ -207,7 +214,8 @@ class _Walker:
         for param in (*stmt.params.posonly_params, *stmt.params.params, *stmt.params.kwonly_params):
             name = param.name.value
             if function is not None and name in function.frame_params:
-                local[name] = Frame(emit.atom(name), labels_intact=False)
+                columns, dtypes = dict(function.param_schemas).get(name, (None, ()))
+                local[name] = Frame(emit.atom(name), labels_intact=False, columns=columns, dtypes=dtypes)
             else:
                 local.pop(name, None)
         outer = self.function
@@ -510,6 +518,74 @@ class _Walker:
         return emit.layout_chain(code, indent, f"{name} = "), list(value.sites)
 
 
+SINKS = ("sink_csv", "sink_parquet", "sink_ndjson", "sink_ipc")
+
+
+def _sink_call(stmt: Any) -> cst.Call | None:
+    """The write of a statement that is only `frame.sink_*(path, ...)` with a literal path."""
+    if not (isinstance(stmt, cst.SimpleStatementLine) and len(stmt.body) == 1
+            and isinstance(stmt.body[0], cst.Expr)):
+        return None
+    call = stmt.body[0].value
+    if isinstance(call, cst.Call) and isinstance(call.func, cst.Attribute) \
+            and call.func.attr.value in SINKS and call.args \
+            and isinstance(call.args[0].value, cst.SimpleString) and not any(
+                a.keyword is not None and a.keyword.value == "lazy" for a in call.args):
+        return call
+    return None
+
+
+def _batch_writes(out: list[Any], original: Any) -> list[Any]:
+    """Consecutive writes porter made become one pl.collect_all, so plans they share run once.
+
+    Only writes to distinct literal paths with nothing but blank lines between them are
+    batched: the files are then the same as when written one after the other.
+    """
+    rewritten = {id(s) for s in out} - {id(s) for s in original}
+    result: list[Any] = []
+    run: list[tuple[Any, cst.Call]] = []
+
+    def flush() -> None:
+        paths = [c.args[0].value.evaluated_value for _, c in run]  # type: ignore[union-attr]
+        if len(run) >= 2 and len(set(paths)) == len(paths):
+            result.append(_collect_all(run))
+        else:
+            result.extend(stmt for stmt, _ in run)
+        run.clear()
+
+    for stmt in out:
+        call = _sink_call(stmt) if id(stmt) in rewritten else None
+        has_comment = any(line.comment for line in getattr(stmt, "leading_lines", ()))
+        if call is not None and (not run or not has_comment):
+            run.append((stmt, call))
+            continue
+        flush()
+        if call is not None:
+            run.append((stmt, call))
+        else:
+            result.append(stmt)
+    flush()
+    return result
+
+
+def _collect_all(run: list[tuple[Any, cst.Call]]) -> cst.SimpleStatementLine:
+    module = cst.Module([])
+    lines = []
+    for _, call in run:
+        args = [*call.args]
+        args[-1] = args[-1].with_changes(comma=cst.MaybeSentinel.DEFAULT)
+        lazy = cst.Arg(keyword=cst.Name("lazy"), value=cst.Name("True"),
+                       equal=cst.AssignEqual(cst.SimpleWhitespace(""), cst.SimpleWhitespace("")))
+        with_lazy = call.with_changes(args=[*(a.with_changes(comma=cst.Comma(
+            whitespace_after=cst.SimpleWhitespace(" "))) for a in args), lazy])
+        lines.append(f"    {module.code_for_node(with_lazy)},")
+    text = "pl.collect_all([\n" + "\n".join(lines) + "\n])\n"
+    stmt = cst.parse_statement(text)
+    first = run[0][0]
+    return stmt.with_changes(leading_lines=first.leading_lines,
+                             trailing_whitespace=run[-1][0].trailing_whitespace)
+
+
 def _is_collected(code: Code) -> bool:
     return code.text.endswith(".collect().lazy()")
 
@@ -569,4 +645,8 @@ def _todo_comments(sites: list[SiteDraft], line: Any) -> list[cst.EmptyLine]:
             continue
         existing.add(text)
         comments.append(cst.EmptyLine(comment=cst.Comment(text)))
+        if site.suggestion:
+            lines = site.suggestion.splitlines()
+            comments.append(cst.EmptyLine(comment=cst.Comment(f"#   suggested: {lines[0]}")))
+            comments += [cst.EmptyLine(comment=cst.Comment(f"#   {line}")) for line in lines[1:]]
     return comments

@@ -23,8 +23,8 @@ from porter.model import MappingEntry, SiteDraft
 from porter.translate import handover
 from porter.translate.context import PandasCall, RuleContext, Unsupported
 from porter.translate.values import (
-    MISSING, Accessor, Column, Frame, Grouped, Indexer, Module, Opaque, PandasValue, Scalar,
-    Value,
+    MISSING, Accessor, Column, Frame, Grouped, Indexer, Items, Module, Opaque, PandasValue,
+    Scalar, Value,
 )
 
 BINARY_OPS = {
@@ -56,6 +56,8 @@ class LocalFunction:
     params: tuple[str, ...]
     frame_params: frozenset[str]
     returns: Value | None  # a template of the return value (Frame), when known
+    # what every call passes for a frame parameter, when the calls agree: (columns, dtypes)
+    param_schemas: tuple[tuple[str, tuple[tuple[str, ...] | None, tuple[tuple[str, str], ...]]], ...] = ()
 
 
 @dataclass
@@ -131,6 +133,10 @@ class Evaluator:
         ):
             items = [v.const for v in values]  # type: ignore[union-attr]
             return self.opaque(node, items if isinstance(node, cst.List) else tuple(items))
+        if len(values) == len(node.elements) and any(_is_pandas(v) for v in values):
+            return Items(Code(self.source(node)), items=tuple(values),
+                         brackets="[]" if isinstance(node, cst.List) else "()",
+                         sites=tuple(s for v in values for s in v.sites))
         return self.generic(node)
 
     _eval_Tuple = _eval_List
@@ -161,7 +167,8 @@ class Evaluator:
             return Module(Code(self.source(node)), qualname=qualname, sites=receiver.sites)
         if isinstance(receiver, Frame):
             if name in ("loc", "iloc"):
-                return Indexer(Code(self.source(node)), frame=receiver, kind=name)
+                return Indexer(Code(self.source(node)), frame=receiver, kind=name,
+                               sites=receiver.sites)
             if name in pandas_names.FRAME and name not in _FRAME_PROPERTIES:
                 return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
             if name in _FRAME_PROPERTIES:
@@ -171,7 +178,8 @@ class Evaluator:
             return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
         if isinstance(receiver, Column):
             if name in ("str", "dt"):
-                return Accessor(Code(self.source(node)), column=receiver, kind=name)
+                return Accessor(Code(self.source(node)), column=receiver, kind=name,
+                                sites=receiver.sites)
             if name in pandas_names.SERIES and name not in _SERIES_PROPERTIES:
                 return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
             return self.dispatch(f"series.{name}", PandasCall(receiver, name, node=node), node)
@@ -189,7 +197,22 @@ class Evaluator:
         if isinstance(receiver, (Column, Frame, Grouped, Accessor, Indexer)):
             return self.todo(f"{_prefix(receiver)}.{name}", PandasCall(receiver, name, node=node),
                              node, "porter has no rule for this attribute")
+        if isinstance(receiver, Scalar) and receiver.pytype == "list[str]":
+            return self.column_names_attribute(receiver, name, node)
         return self.generic(node)
+
+    def column_names_attribute(self, names: Scalar, attr: str, node: cst.Attribute) -> Value:
+        """`df.columns.<attr>`: porter's column names are a list, pandas' an Index."""
+        if attr in ("tolist", "to_list", "values"):
+            return BoundMethod(names.code, receiver=names, name=attr) if attr != "values" else names
+        alias = next((n for n, v in self.env.items() if isinstance(v, Module) and v.qualname == "pandas"), None)
+        line, end_line = self.services.position(node)
+        site = SiteDraft("frame.columns.index", "todo", "todo", 0.0,
+                         f"pandas' Index.{attr} on the column names: porter's names are a list",
+                         line, end_line)
+        if alias is None:
+            return self.generic(node)
+        return PandasValue(Code(f"{alias}.Index({names.code.text}).{attr}"), sites=names.sites + (site,))
 
     # -- calls ----------------------------------------------------------------------------------
     def _eval_Call(self, node: cst.Call) -> Value:
@@ -203,6 +226,8 @@ class Evaluator:
         lookup = self.dict_get(node)
         if lookup is not None:
             return lookup
+        if isinstance(func, BoundMethod) and isinstance(func.receiver, Scalar):
+            return func.receiver  # tolist() of the column names: already a list
         if not isinstance(func, (BoundMethod, Module)):
             return self.generic(node)
         if isinstance(func, Module) and func.qualname.startswith("numpy."):
@@ -423,8 +448,6 @@ class Evaluator:
         line, end_line = self.services.position(node)
         advice = entry.advice if entry is not None and entry.status != "todo" else ""
         message = reason if not advice or advice == reason else f"{reason}; {advice}"
-        if suggestion:
-            message += f"; suggested: {suggestion}"
         site = SiteDraft(key, entry.rule or "todo" if entry else "todo", "todo", 0.0, message,
                          line, end_line, suggestion)
         fallback = handover.pandas_fallback(call, self.source, node)
@@ -616,7 +639,7 @@ def _getitem_key(receiver: Value, key: Value) -> str:
 
 
 def _is_pandas(value: Value) -> bool:
-    return isinstance(value, (Frame, Column, Grouped, Accessor, Indexer, BoundMethod))
+    return isinstance(value, (Frame, Column, Grouped, Accessor, Indexer, BoundMethod, Items))
 
 
 def _is_series_like(value: Value) -> bool:

@@ -13,8 +13,15 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.translate.context import PandasCall
 from porter.translate.values import (
-    Accessor, Column, Frame, Grouped, Indexer, Opaque, Value,
+    Accessor, Column, Frame, Grouped, Indexer, Items, Opaque, Value,
 )
+
+
+def _items(value: Items, convert: Callable[[Value], Code]) -> Code:
+    inner = ", ".join(convert(v).text for v in value.items)
+    if value.brackets == "()" and len(value.items) == 1:
+        inner += ","
+    return Code(f"{value.brackets[0]}{inner}{value.brackets[1]}")
 
 
 def series_frame(column: Column) -> Code:
@@ -68,6 +75,8 @@ def to_pandas(value: Value) -> Code:
         return to_pandas(value.column).attr(value.kind)
     if isinstance(value, Indexer):
         return to_pandas(value.frame).attr(value.kind)
+    if isinstance(value, Items):
+        return _items(value, to_pandas)
     return value.code
 
 
@@ -77,6 +86,8 @@ def for_display(value: Value) -> Code:
         return collected(value)
     if isinstance(value, (Grouped, Accessor, Indexer)):
         return to_pandas(value)
+    if isinstance(value, Items):
+        return _items(value, for_display)
     return value.code
 
 

@@ -145,4 +145,12 @@ class Opaque(Value):
         return self.const is not MISSING
 
 
-PANDAS_KINDS = (Frame, Column, Grouped, Accessor, Indexer)
+@dataclass(frozen=True)
+class Items(Value):
+    """A list or tuple written out in the code that holds pandas values (frames to concatenate)."""
+
+    items: tuple[Value, ...] = field(kw_only=True)
+    brackets: str = field(default="[]", kw_only=True)
+
+
+PANDAS_KINDS = (Frame, Column, Grouped, Accessor, Indexer, Items)

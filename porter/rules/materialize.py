@@ -1,0 +1,65 @@
+"""Values out of a frame: s.values, s.to_numpy(), s.tolist(), df.values, df.to_numpy().
+
+These need the data, so they are where porter writes a collect.
+"""
+
+from __future__ import annotations
+
+from porter.emit.code import Code
+from porter.rules import rule
+from porter.translate.context import PandasCall, RuleContext
+from porter.translate.values import Column, Frame, Scalar, Value
+
+
+def _series(column: Column) -> Code:
+    expr = column.code.method("fill_null", False) if column.null_is_false else column.code
+    return column.frame.code.method("select", expr).method("collect").method("to_series")
+
+
+@rule("series.values", "series.to_numpy")
+def series_values(call: PandasCall, ctx: RuleContext) -> Value:
+    """Series.values / to_numpy() -> collect the column, .to_numpy().
+
+    Handles: missing numbers become nan, and integer columns with missing values become float,
+    as in pandas.
+    Caveats: text columns give None for a missing value where pandas gives nan.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call)
+    if column.dtype not in ("int", "float", "bool"):
+        ctx.lower("a missing text value is None here, nan in pandas", 0.95)
+    return Scalar(_series(column).method("to_numpy"), pytype="array")
+
+
+@rule("series.tolist", "series.to_list")
+def series_tolist(call: PandasCall, ctx: RuleContext) -> Value:
+    """Series.tolist() -> collect the column, .to_numpy().tolist().
+
+    Handles: missing numbers are nan, as pandas gives them (Polars' to_list gives None).
+    Caveats: text columns give None for a missing value where pandas gives nan.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call)
+    if column.dtype not in ("int", "float", "bool"):
+        ctx.lower("a missing text value is None here, nan in pandas", 0.95)
+    return Scalar(_series(column).method("to_numpy").method("tolist"), pytype="list")
+
+
+@rule("frame.values", "frame.to_numpy")
+def frame_values(call: PandasCall, ctx: RuleContext) -> Value:
+    """DataFrame.values / to_numpy() -> collect, .to_numpy().
+
+    Handles: missing numbers become nan; mixed column types give an object array in both.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call)
+    if frame.index:
+        raise ctx.todo("the frame's index columns would be included (they are not in pandas' values)")
+    if not (frame.dtypes and all(t in ("int", "float", "bool") for _, t in frame.dtypes)
+            and frame.columns is not None and len(frame.dtypes) == len(frame.columns)):
+        ctx.lower("text columns give None for missing values where pandas gives nan", 0.95)
+    return Scalar(frame.code.method("collect").method("to_numpy"), pytype="array")
+

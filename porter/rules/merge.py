@@ -1,0 +1,433 @@
+"""Combining frames: merge -> LazyFrame.join, pd.concat -> pl.concat.
+
+Caveats: indicator=, validate=, left_index/right_index, the anti joins and axis=1 concatenation
+are TODOs. Missing keys match each other only as nulls: porter keeps frames NaN-free (NaN is
+written as a missing value), and a NaN produced by arithmetic would match only NaN in Polars.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from dataclasses import dataclass
+from typing import Any
+
+import libcst as cst
+
+from porter.emit import code as emit
+from porter.emit.code import Code
+from porter.rules import rule
+from porter.translate.context import PandasCall, RuleContext, Unsupported
+from porter.translate.values import Column, Frame, Value
+
+HOW = {"inner": "inner", "left": "left", "right": "right", "outer": "full", "cross": "cross"}
+MERGE_PARAMS = ("right", "how", "on", "left_on", "right_on", "left_index", "right_index", "sort",
+                "suffixes", "copy", "indicator", "validate")
+INDICATOR_ADVICE = (
+    "indicator=True has no join option: mark each side with a literal column, join how='full', "
+    "then derive '_merge' with pl.when (J08)")
+
+
+@rule("frame.merge")
+def frame_merge(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.merge(right, how, on, ...) -> .join(right, ..., nulls_equal=True, maintain_order=...).
+
+    Handles: pandas' row order for every `how` (left_right, right_left for a right join);
+    outer joins coalesce their keys and sort by them with missing keys last; missing keys
+    match each other (nulls_equal=True); left_on/right_on keep both key columns; suffixes
+    applied to both sides when the columns are known; pandas' column order after a right
+    join; sort=True; an int key joined to a float key (cast when the types are known); keys
+    that are the index of a grouped frame.
+    Caveats: indicator=, validate=, left_index/right_index and the anti joins are TODOs.
+    With the columns unknown, the columns both frames have are found from their schemas when
+    the script runs.
+    """
+    return _merge(call.receiver, _named(call, MERGE_PARAMS), ctx)
+
+
+@rule("pd.merge")
+def pd_merge(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.merge(left, right, ...) -> left.join(right, ...); as frame.merge."""
+    args = _named(call, ("left", *MERGE_PARAMS))
+    return _merge(args.arg("left"), args, ctx)
+
+
+def _named(call: PandasCall, names: Sequence[str]) -> PandasCall:
+    """The call with every argument by name, so both spellings read the same."""
+    if len(call.args) > len(names):
+        raise Unsupported("more positional arguments than pandas takes")
+    unknown = [k for k in call.kwargs if k not in names]
+    if unknown:
+        raise Unsupported(f"argument {', '.join(unknown)} is not handled by porter yet")
+    kwargs = dict(zip(names, call.args)) | call.kwargs
+    return PandasCall(call.receiver, call.name, (), kwargs, call.node)
+
+
+@dataclass(frozen=True)
+class _Side:
+    """One input of the join as it is prepared: its code, columns, types and keys."""
+
+    code: Code
+    columns: tuple[str, ...] | None
+    dtypes: dict[str, str]
+    keys: tuple[str, ...]
+    index: tuple[str, ...]
+
+
+def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
+    right = args.arg("right")
+    for side, value in (("left", left), ("right", right)):
+        if not isinstance(value, Frame):
+            raise ctx.todo(f"the {side} side is not a frame porter tracks: make it a "
+                           "LazyFrame (pl.from_pandas(...).lazy()) where it is built")
+    assert isinstance(left, Frame) and isinstance(right, Frame)
+    if args.const("indicator", None, False):
+        raise ctx.todo(INDICATOR_ADVICE)
+    if args.const("validate", None, None) is not None:
+        raise ctx.todo("validate= raises MergeError in pandas but ComputeError in Polars: "
+                       "pass validate= to join (with nulls_equal=True) if the error type does "
+                       "not matter")
+    if args.const("left_index", None, False) or args.const("right_index", None, False):
+        raise ctx.todo("left_index/right_index join on row labels: make the labels a column "
+                       "(with_row_index where the frame was made) and join on it")
+    how = args.const("how", None, "inner")
+    if how in ("left_anti", "right_anti"):
+        raise ctx.todo(f"how={how!r} keeps the other side's columns as missing values and the "
+                       "old row labels: use join(how='anti') and add the columns")
+    if how not in HOW:
+        raise ctx.todo(f"how={how!r}")
+    left_keys, right_keys, coalesced = _keys(args, how, left, right, ctx)
+    lside = _ignore_index(left, left_keys, coalesced, ctx)
+    rside = _ignore_index(right, right_keys, coalesced, ctx)
+    if lside.index and rside.index and not (lside.index == rside.index == left_keys):
+        raise ctx.todo("both frames keep an index that is not exactly the merge keys: "
+                       "call reset_index() first")
+    lside, rside, suffix = _suffixes(args, lside, rside, coalesced, ctx)
+    lside, rside = _common_key_types(lside, rside)
+
+    kwargs: dict[str, object] = {}
+    if how != "cross":
+        if coalesced:
+            kwargs["on"] = emit.names_arg(lside.keys)
+        else:
+            kwargs["left_on"] = emit.names_arg(lside.keys)
+            kwargs["right_on"] = emit.names_arg(rside.keys)
+    kwargs["how"] = HOW[how]
+    unknown_right_order = how == "right" and coalesced and (
+        lside.columns is None or rside.columns is None)
+    if not coalesced or unknown_right_order:
+        kwargs["coalesce"] = False  # pandas keeps both key columns (J06)
+    elif how == "outer":
+        kwargs["coalesce"] = True  # pandas' outer merge has one key column (J04)
+    if how != "cross":
+        kwargs["nulls_equal"] = True  # pandas matches missing keys with each other (J01)
+    kwargs["maintain_order"] = "right_left" if how == "right" else "left_right"
+    if suffix is not None:
+        kwargs["suffix"] = suffix
+    code = lside.code.method("join", rside.code, **kwargs)
+    columns = _result_columns(lside, rside, coalesced)
+    if how == "right" and coalesced:
+        code = _right_join_order(code, lside, rside, columns, suffix or "_right")
+    if how == "outer" or (args.const("sort", None, False) and how != "cross"):
+        code = code.method("sort", _sort_keys(how, lside, rside, coalesced),
+                           nulls_last=True, maintain_order=True)
+    dtypes = {**rside.dtypes, **lside.dtypes} if columns is not None else {}
+    return Frame(code, columns=columns, labels_intact=True,
+                 index=lside.index if lside.index and rside.index else (),
+                 dtypes=tuple((c, dtypes[c]) for c in columns or () if c in dtypes))
+
+
+def _names(value: Any, what: str, ctx: RuleContext) -> tuple[str, ...] | None:
+    if value is None:
+        return None
+    if isinstance(value, str):
+        return (value,)
+    if isinstance(value, (list, tuple)) and value and all(isinstance(v, str) for v in value):
+        return tuple(value)
+    raise ctx.todo(f"{what} must name columns (arrays of key values are not handled)")
+
+
+def _keys(args: PandasCall, how: str, left: Frame, right: Frame,
+          ctx: RuleContext) -> tuple[tuple[str, ...], tuple[str, ...], bool]:
+    """The key columns of each side, and whether pandas keeps one column per key."""
+    on = _names(args.const("on", None, None), "on", ctx)
+    left_on = _names(args.const("left_on", None, None), "left_on", ctx)
+    right_on = _names(args.const("right_on", None, None), "right_on", ctx)
+    if how == "cross":
+        if on or left_on or right_on:
+            raise ctx.todo("how='cross' takes no keys (pandas raises MergeError)")
+        return (), (), True
+    if on is not None:
+        if left_on or right_on:
+            raise ctx.todo("on= together with left_on/right_on (pandas raises MergeError)")
+        keys = on
+    elif left_on is not None or right_on is not None:
+        if left_on is None or right_on is None or len(left_on) != len(right_on):
+            raise ctx.todo("left_on and right_on must name as many columns (pandas raises)")
+        if left_on != right_on:
+            if any(a == b for a, b in zip(left_on, right_on)):
+                raise ctx.todo("some key pairs share a name and others do not: pandas keeps "
+                               "one column for the first and two for the others")
+            _check_keys(left, left_on, ctx)
+            _check_keys(right, right_on, ctx)
+            return left_on, right_on, False
+        keys = left_on  # same names on both sides: one column per key, as with on=
+    else:
+        if left.columns is None or right.columns is None:
+            raise ctx.todo("without on=, pandas joins on the columns both frames share, which "
+                           "porter does not know here: write on=[...]")
+        keys = tuple(c for c in left.columns if c not in left.index
+                     and c in right.columns and c not in right.index)
+        if not keys:
+            raise ctx.todo("the frames share no column to join on (pandas raises MergeError)")
+    _check_keys(left, keys, ctx)
+    _check_keys(right, keys, ctx)
+    return keys, keys, True
+
+
+def _check_keys(frame: Frame, keys: tuple[str, ...], ctx: RuleContext) -> None:
+    if frame.columns is not None and any(k not in frame.columns for k in keys):
+        missing = [k for k in keys if k not in frame.columns]
+        raise ctx.todo(f"merge key {', '.join(map(repr, missing))} is not a column of this frame")
+
+
+def _ignore_index(frame: Frame, keys: tuple[str, ...], coalesced: bool,
+                  ctx: RuleContext) -> _Side:
+    """pandas ignores an index that is not a merge key, and uses index levels named in on=."""
+    side = _Side(frame.code, frame.columns, dict(frame.dtypes), keys, frame.index)
+    if not frame.index:
+        return side
+    used = [c for c in frame.index if c in keys]
+    if not used:  # a join on columns only: the index (kept as columns by porter) goes
+        code = frame.code.method("drop", *frame.index)
+        columns = tuple(c for c in frame.columns if c not in frame.index) \
+            if frame.columns is not None else None
+        return _Side(code, columns, side.dtypes, keys, ())
+    if coalesced and len(used) == len(frame.index):
+        return side
+    raise ctx.todo("the index of this frame (after a groupby) is only partly a merge key: "
+                   "call reset_index() first")
+
+
+def _suffixes(args: PandasCall, lside: _Side, rside: _Side, coalesced: bool,
+              ctx: RuleContext) -> tuple[_Side, _Side, str | None]:
+    """Rename the columns both sides have, as pandas does, before the join (J05)."""
+    suffixes = args.const("suffixes", None, ("_x", "_y"))
+    if not (isinstance(suffixes, (tuple, list)) and len(suffixes) == 2
+            and all(s is None or isinstance(s, str) for s in suffixes)):
+        raise ctx.todo("suffixes must be two strings")
+    lsuf, rsuf = (s or "" for s in suffixes)
+    if lside.columns is None or rside.columns is None:
+        # The shared columns are found when the script runs, from the two schemas (no data is
+        # read): each side renames the columns the other side also has, as pandas does.
+        keys = tuple(lside.keys) if coalesced else ()
+        left_schema = lside.code.method("collect_schema")
+        right_schema = rside.code.method("collect_schema")
+        return (_renamed_at_run_time(lside, right_schema, keys, lsuf),
+                _renamed_at_run_time(rside, left_schema, keys, rsuf), None)
+    shared = [c for c in lside.columns if c in rside.columns
+              and not (coalesced and c in lside.keys)]
+    if shared and not lsuf and not rsuf:
+        raise ctx.todo("columns overlap but no suffix is given (pandas raises ValueError)")
+    return _renamed(lside, shared, lsuf), _renamed(rside, shared, rsuf), None
+
+
+def _renamed_at_run_time(side: _Side, other_schema: Code, keys: tuple[str, ...],
+                         suffix: str) -> _Side:
+    if not suffix:
+        return side
+    test = f"c in {other_schema.text}" + (f" and c not in {emit.lit(keys).text}" if keys else "")
+    rename = Code(f"lambda c: c + {emit.lit(suffix).text} if {test} else c")
+    return _Side(side.code.method("rename", rename), None, {}, side.keys, side.index)
+
+
+def _renamed(side: _Side, shared: list[str], suffix: str) -> _Side:
+    if not shared or not suffix:
+        return side
+    mapping = {c: c + suffix for c in shared}
+    return _Side(side.code.method("rename", mapping),
+                 tuple(mapping.get(c, c) for c in side.columns or ()),
+                 {mapping.get(c, c): t for c, t in side.dtypes.items()},
+                 tuple(mapping.get(k, k) for k in side.keys), side.index)
+
+
+def _common_key_types(lside: _Side, rside: _Side) -> tuple[_Side, _Side]:
+    """pandas joins an int key to a float key; Polars raises SchemaError (J11)."""
+    lcast, rcast = [], []
+    for lk, rk in zip(lside.keys, rside.keys):
+        kinds = (lside.dtypes.get(lk), rside.dtypes.get(rk))
+        if kinds == ("int", "float"):
+            lcast.append(lk)
+        elif kinds == ("float", "int"):
+            rcast.append(rk)
+    return _cast_float(lside, lcast), _cast_float(rside, rcast)
+
+
+def _cast_float(side: _Side, keys: list[str]) -> _Side:
+    if not keys:
+        return side
+    exprs = [emit.col(k).method("cast", emit.atom("pl.Float64")) for k in keys]
+    return _Side(side.code.method("with_columns", *exprs), side.columns,
+                 {**side.dtypes, **{k: "float" for k in keys}}, side.keys, side.index)
+
+
+def _result_columns(lside: _Side, rside: _Side, coalesced: bool) -> tuple[str, ...] | None:
+    """pandas' column order: the left columns, then the right ones (one column per key)."""
+    if lside.columns is None or rside.columns is None:
+        return None
+    right = [c for c in rside.columns if not (coalesced and c in rside.keys)]
+    return (*lside.columns, *right)
+
+
+def _right_join_order(code: Code, lside: _Side, rside: _Side, columns: tuple[str, ...] | None,
+                      suffix: str) -> Code:
+    """Polars puts the keys of a right join after the left columns; pandas keeps them where
+    the left frame has them (J03)."""
+    if columns is None:
+        # joined with coalesce=False: the left key columns take the right keys' values
+        exprs = [emit.col(k + suffix).method("alias", k) for k in lside.keys]
+        return code.method("with_columns", *exprs).method("drop", *(k + suffix for k in lside.keys))
+    left_values = [c for c in lside.columns or () if c not in lside.keys]
+    if (*left_values, *(rside.columns or ())) == columns:
+        return code
+    return code.method("select", *columns)
+
+
+def _sort_keys(how: str, lside: _Side, rside: _Side, coalesced: bool) -> object:
+    if coalesced:
+        return emit.names_arg(lside.keys)
+    if how == "outer":  # a row from either side: sort by whichever key it has
+        exprs = [emit.pl("coalesce", emit.col(a), emit.col(b))
+                 for a, b in zip(lside.keys, rside.keys)]
+        return exprs[0] if len(exprs) == 1 else exprs
+    return emit.names_arg(rside.keys if how == "right" else lside.keys)
+
+
+# -- concat ---------------------------------------------------------------------------------
+
+@rule("pd.concat")
+def concat(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.concat([a, b]) -> pl.concat([a, b], how="diagonal_relaxed").
+
+    Handles: columns aligned by name in first-seen order, a column missing from a frame is
+    missing there, int and float columns take the common type (C01); join="inner" and
+    sort=True when the columns are known; ignore_index=True gives fresh labels (C02).
+    Caveats: axis=1, keys=, Series and frames porter does not track are TODOs.
+    """
+    if call.has("keys") or call.has("levels") or call.has("names"):
+        raise ctx.todo("keys= labels each piece in a MultiIndex: add a column per frame "
+                       "(with_columns(pl.lit(key))) before the concat")
+    ctx.reject_unknown(call, "objs", "axis", "join", "ignore_index", "sort", "copy",
+                       "verify_integrity", positional=1)
+    axis = call.const("axis", None, 0)
+    if axis in (1, "columns"):
+        raise ctx.todo("axis=1 lines frames up by their row labels (an outer join of the "
+                       "indexes), not by position: join on a label column, or use "
+                       "pl.concat(how='horizontal_extend') where both have labels 0..n-1")
+    if axis not in (0, "index", "rows"):
+        raise ctx.todo(f"axis={axis!r}")
+    if call.const("verify_integrity", None, False):
+        raise ctx.todo("verify_integrity=True checks row labels, which Polars does not have")
+    join = call.const("join", None, "outer")
+    if join not in ("outer", "inner"):
+        raise ctx.todo(f"join={join!r}")
+    ignore_index = bool(call.const("ignore_index", None, False))
+    frames = _listed_frames(call, ctx)
+    index = frames[0].index
+    if ignore_index:  # pandas drops the labels; porter's index columns go with them
+        frames = [_drop_index(f) for f in frames]
+        index = ()
+    elif any(f.index != index for f in frames):
+        raise ctx.todo("the frames have different indexes: call reset_index() first")
+    _check_mixed_types(frames, ctx)
+    code = emit.pl("concat", [f.code for f in frames], how="diagonal_relaxed")
+    columns = _concat_columns(frames, join, bool(call.const("sort", None, False)), ctx)
+    union = _union(f.columns or () for f in frames)
+    if columns is not None and columns != union:
+        code = code.method("select", *columns)
+    return Frame(code, columns=columns, dtypes=_concat_dtypes(frames, columns), index=index,
+                 labels_intact=ignore_index or len(frames) == 1 and frames[0].labels_intact,
+                 sites=tuple(s for f in frames for s in f.sites))
+
+
+def _listed_frames(call: PandasCall, ctx: RuleContext) -> list[Frame]:
+    """The frames written in the list literal passed to pd.concat."""
+    node = _objs_node(call)
+    if not isinstance(node, (cst.List, cst.Tuple)):
+        raise ctx.todo("the frames are not written out as a list, so porter cannot see them")
+    frames: list[Frame] = []
+    for element in node.elements:
+        if not isinstance(element, cst.Element):
+            raise ctx.todo("*unpacking in the list of frames")
+        value = ctx.evaluate(element.value, {})
+        if isinstance(value, Column):
+            raise ctx.todo("concatenating Series: pandas aligns them by their labels")
+        if not isinstance(value, Frame):
+            raise ctx.todo(f"`{value.code.text}` is not a frame porter tracks: make it a "
+                           "LazyFrame (pl.from_pandas(...).lazy()) where it is built")
+        frames.append(value)
+    if not frames:
+        raise ctx.todo("an empty list (pandas raises ValueError)")
+    return frames
+
+
+def _objs_node(call: PandasCall) -> cst.BaseExpression | None:
+    if not isinstance(call.node, cst.Call):
+        return None
+    for arg in call.node.args:
+        positional = arg.keyword is None and not arg.star
+        if positional or (arg.keyword is not None and arg.keyword.value == "objs"):
+            return arg.value
+    return None
+
+
+def _drop_index(frame: Frame) -> Frame:
+    if not frame.index:
+        return frame
+    columns = tuple(c for c in frame.columns if c not in frame.index) \
+        if frame.columns is not None else None
+    return Frame(frame.code.method("drop", *frame.index), columns=columns,
+                 dtypes=tuple((c, t) for c, t in frame.dtypes if c not in frame.index),
+                 sites=frame.sites)
+
+
+def _union(columns: Any) -> tuple[str, ...]:
+    seen: dict[str, None] = {}
+    for names in columns:
+        seen.update(dict.fromkeys(names))
+    return tuple(seen)
+
+
+def _concat_columns(frames: list[Frame], join: str, sort: bool,
+                    ctx: RuleContext) -> tuple[str, ...] | None:
+    if any(f.columns is None for f in frames):
+        if join == "inner" or sort:
+            raise ctx.todo("join='inner' and sort=True need the columns of every frame, "
+                           "which porter does not know here")
+        return None
+    columns = _union(f.columns or () for f in frames)
+    if join == "inner":  # the columns every frame has, in the first frame's order
+        columns = tuple(c for c in columns if all(c in (f.columns or ()) for f in frames))
+    return tuple(sorted(columns)) if sort else columns
+
+
+def _check_mixed_types(frames: list[Frame], ctx: RuleContext) -> None:
+    """pandas keeps text and numbers side by side in one column; diagonal_relaxed would turn
+    the numbers into text."""
+    for column in _union(f.columns or () for f in frames):
+        kinds = {f.dtype(column) for f in frames if column in (f.columns or ())}
+        if "str" in kinds and kinds & {"int", "float", "bool"}:
+            raise ctx.todo(f"column {column!r} holds text in one frame and numbers in another: "
+                           "pandas keeps both, Polars would make the numbers text")
+
+
+def _concat_dtypes(frames: list[Frame],
+                   columns: tuple[str, ...] | None) -> tuple[tuple[str, str], ...]:
+    """A column's type when every frame that has it agrees (int with float gives float)."""
+    out = []
+    for column in columns or ():
+        kinds = {f.dtype(column) for f in frames if column in (f.columns or ())}
+        if kinds == {"int", "float"}:
+            kinds = {"float"}
+        if len(kinds) == 1 and None not in kinds:
+            out.append((column, kinds.pop()))
+    return tuple(out)
