@@ -219,11 +219,13 @@ def _suffixes(args: PandasCall, lside: _Side, rside: _Side, coalesced: bool,
     if lside.columns is None or rside.columns is None:
         # The shared columns are found when the script runs, from the two schemas (no data is
         # read): each side renames the columns the other side also has, as pandas does.
-        keys = tuple(lside.keys) if coalesced else ()
         left_schema = lside.code.method("collect_schema")
         right_schema = rside.code.method("collect_schema")
-        return (_renamed_at_run_time(lside, right_schema, keys, lsuf),
-                _renamed_at_run_time(rside, left_schema, keys, rsuf), None)
+        if not coalesced:
+            ctx.lower("a key column whose name the other frame also has keeps its name here; "
+                      "pandas suffixes it too (run with --data to know the columns)", 0.9)
+        return (_renamed_at_run_time(lside, right_schema, tuple(lside.keys), lsuf),
+                _renamed_at_run_time(rside, left_schema, tuple(rside.keys), rsuf), None)
     shared = [c for c in lside.columns if c in rside.columns
               and not (coalesced and c in lside.keys)]
     if shared and not lsuf and not rsuf:

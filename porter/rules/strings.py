@@ -1,0 +1,490 @@
+"""Strings: the .str accessor (T01–T12 in the semantics reference).
+
+A missing value stays missing through pandas' string methods, except in boolean tests
+(contains, startswith, match…), where pandas 3 gives False; Polars gives null for both, so
+boolean results are marked null_is_false and filled where pandas' False matters.
+Patterns written for Python's `re` are checked before they reach Polars' Rust regex engine.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterator
+import math
+import re
+import re._constants as _C  # noqa: PLC2701 - the parse tree is how Python reads a pattern
+import re._parser as _P  # noqa: PLC2701
+import warnings
+
+import polars as pl
+
+from porter.emit import code as emit
+from porter.emit.code import Code
+from porter.rules import rule
+from porter.translate.context import PandasCall, RuleContext, Unsupported, derived_column
+from porter.translate.values import Accessor, Column, Opaque, Value
+
+INT64 = emit.atom("pl.Int64")
+
+
+def _column(call: PandasCall) -> Column:
+    accessor = call.receiver
+    assert isinstance(accessor, Accessor)
+    return accessor.column
+
+
+def _text(column: Column) -> Code:
+    return column.code.attr("str")
+
+
+def _result(column: Column, code: Code, dtype: str, null_is_false: bool = False) -> Column:
+    # The evaluator builds `.str` without the sites of the column under it (a chain would lose
+    # them from the report), so the result carries them; the engine drops repeats.
+    return derived_column(column, code, dtype=dtype, null_is_false=null_is_false).with_sites(
+        *column.sites)
+
+
+def _string(column: Column, code: Code) -> Column:
+    return _result(column, code, "str")
+
+
+# -- regex dialects (T12) -------------------------------------------------------------------
+
+_FLAG_LETTERS = {re.I: "i", re.M: "m", re.S: "s"}
+_FLAG_NAMES = {"I": re.I, "IGNORECASE": re.I, "M": re.M, "MULTILINE": re.M, "S": re.S,
+               "DOTALL": re.S, "U": re.U, "UNICODE": re.U}
+_ISSUES = {_C.ASSERT: "lookaround", _C.ASSERT_NOT: "lookaround", _C.GROUPREF: "backreference",
+           _C.GROUPREF_EXISTS: "conditional", _C.ATOMIC_GROUP: "atomic group",
+           _C.POSSESSIVE_REPEAT: "possessive repeat"}
+
+
+def regex_flags(call: PandasCall, position: int) -> int:
+    """`flags=re.I | re.M` (or an int) as Python's flag bits."""
+    if not call.has("flags", position):
+        return 0
+    value = call.arg("flags", position)
+    if isinstance(value, Opaque) and isinstance(value.const, int):
+        flags = value.const
+    else:
+        flags = 0
+        for part in value.code.text.split("|"):
+            name = part.strip().rsplit(".", 1)[-1]
+            if name not in _FLAG_NAMES:
+                raise Unsupported(f"regex flag {part.strip()}")
+            flags |= _FLAG_NAMES[name]
+    if flags & ~(re.I | re.M | re.S | re.U):
+        raise Unsupported("regex flags other than IGNORECASE, MULTILINE, DOTALL")
+    return flags
+
+
+def _nodes(items: object) -> Iterator[tuple[object, object]]:
+    """Every node of a pattern parsed by Python's re, depth first."""
+    for op, av in items:  # type: ignore[attr-defined]
+        yield op, av
+        if op is _C.SUBPATTERN:
+            yield from _nodes(av[3])
+        elif op is _C.BRANCH:
+            for branch in av[1]:
+                yield from _nodes(branch)
+        elif op in (_C.MAX_REPEAT, _C.MIN_REPEAT, _C.POSSESSIVE_REPEAT):
+            yield from _nodes(av[2])
+        elif op in (_C.ASSERT, _C.ASSERT_NOT):
+            yield from _nodes(av[1])
+        elif op is _C.ATOMIC_GROUP:
+            yield from _nodes(av)
+        elif op is _C.GROUPREF_EXISTS:
+            yield from _nodes(av[1])
+            if av[2]:
+                yield from _nodes(av[2])
+
+
+_DOLLAR = "$ also matches before a final newline in Python"
+
+
+def regex_issues(pattern: str, flags: int = 0) -> list[str]:
+    """Why `pattern` (written for Python's re) may not match the same in Polars (T12)."""
+    issues: list[str] = []
+    with warnings.catch_warnings(record=True) as caught:
+        warnings.simplefilter("always")
+        try:
+            tree = _P.parse(pattern, flags)
+        except re.error:
+            return ["not a valid Python regex"]
+    if any(issubclass(w.category, FutureWarning) for w in caught):
+        issues.append("nested set syntax ([[..]], --, &&, ~~) means something else in Rust")
+    if tree.state.flags & re.X:
+        issues.append("verbose mode treats whitespace in classes differently")
+    for op, av in _nodes(tree):
+        if op in _ISSUES:
+            issues.append(_ISSUES[op])
+        elif op is _C.AT and av is _C.AT_END and not tree.state.flags & re.M:
+            issues.append(_DOLLAR)
+    if re.search(r"(?<!\\)(?:\\\\)*\\[<>]", pattern):
+        issues.append(r"\< and \> are word boundaries in Rust")
+    if not issues:
+        try:
+            pl.select(pl.lit("x").str.contains(inline_flags(flags) + pattern)).item()
+        except pl.exceptions.PolarsError:
+            issues.append("Polars' regex engine rejects it")
+    return sorted(set(issues))
+
+
+def inline_flags(flags: int) -> str:
+    letters = "".join(v for k, v in _FLAG_LETTERS.items() if flags & k)
+    return f"(?{letters})" if letters else ""
+
+
+def polars_regex(pattern: str, flags: int, ctx: RuleContext, *, test: bool) -> str:
+    """A Python pattern as a Polars pattern (flags not included), or a TODO.
+
+    `test`: only whether it matches counts, so a final `$` can be widened to `\\n?$`
+    (Python's `$` also matches before one final newline).
+    """
+    issues = regex_issues(pattern, flags)
+    if test and issues == [_DOLLAR] and _only_final_dollar(pattern, flags):
+        pattern, issues = pattern[:-1] + r"\n?$", []
+    if issues:
+        raise ctx.todo(f"the pattern {pattern!r} does not mean the same in Polars' regex "
+                       f"engine ({'; '.join(issues)})")
+    if re.search(r"(?<!\\)(?:\\\\)*\\[sS]", pattern):
+        ctx.lower(r"\s: Python also counts \x1c-\x1f as whitespace", 0.98)
+    return pattern
+
+
+def _only_final_dollar(pattern: str, flags: int) -> bool:
+    tree = _P.parse(pattern, flags)
+    dollars = [av for op, av in _nodes(tree) if op is _C.AT and av is _C.AT_END]
+    return len(dollars) == 1 and pattern.endswith("$") and tuple(tree[-1]) == (_C.AT, _C.AT_END)
+
+
+def polars_template(repl: str, groups: int, ctx: RuleContext) -> str:
+    r"""A Python replacement template (\1, \g<name>) in Polars' syntax (${1}, $$) (T03)."""
+    escapes = {"n": "\n", "t": "\t", "r": "\r", "f": "\f", "v": "\v", "a": "\a", "b": "\b",
+               "\\": "\\"}
+    out: list[str] = []
+    i = 0
+    while i < len(repl):
+        ch = repl[i]
+        nxt = repl[i + 1:i + 2]
+        if ch == "$":
+            out.append("$$")
+        elif ch != "\\" or not nxt:
+            out.append(ch)
+        elif nxt == "g":
+            m = re.match(r"\\g<(\w+)>", repl[i:])
+            if not m:
+                raise ctx.todo(f"replacement {repl!r}: malformed \\g<...>")
+            group = m.group(1)
+            if group.isdigit() and int(group) > groups:
+                raise ctx.todo(f"replacement {repl!r} refers to a group the pattern lacks")
+            out.append("${" + group + "}")
+            i += len(m.group(0))
+            continue
+        elif nxt.isdigit():
+            m = re.match(r"\\([1-9][0-9]?)", repl[i:])
+            if not m or int(m.group(1)) > groups:
+                raise ctx.todo(f"replacement {repl!r}: octal escape or missing group")
+            out.append("${" + m.group(1) + "}")
+            i += len(m.group(0))
+            continue
+        elif nxt in escapes:
+            out.append(escapes[nxt])
+        elif nxt.isascii() and nxt.isalpha():
+            raise ctx.todo(f"replacement {repl!r}: Python rejects \\{nxt}")
+        else:
+            out.append(ch + nxt)
+        i += 2 if ch == "\\" and nxt else 1
+    return "".join(out)
+
+
+# -- case and whitespace (T06) --------------------------------------------------------------
+
+_CASE = {"lower": "to_lowercase", "upper": "to_uppercase", "title": "to_titlecase"}
+
+
+@rule("series.str.lower", "series.str.upper", "series.str.title")
+def case(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str.lower() / upper() / title() -> str.to_lowercase() / to_uppercase() / to_titlecase().
+
+    Caveats: a few letters differ: "ß".upper() is "ẞ" in pandas and "SS" in Polars, ligatures
+    ("ﬀ") are kept by pandas and expanded by Polars, a final sigma is "σ" in pandas and "ς" in
+    Polars (confidence below 1 in the table).
+    """
+    column = _column(call)
+    ctx.reject_unknown(call)
+    return _string(column, _text(column).method(_CASE[call.name]))
+
+
+_STRIP = {"strip": "strip_chars", "lstrip": "strip_chars_start", "rstrip": "strip_chars_end"}
+
+
+@rule("series.str.strip", "series.str.lstrip", "series.str.rstrip")
+def strip(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str.strip(chars) / lstrip / rstrip -> str.strip_chars(chars) / _start / _end.
+
+    Handles: a set of characters to strip (both read it as a set, not a prefix).
+    Caveats: without chars, Python also strips \\x1c-\\x1f (0.99).
+    """
+    column = _column(call)
+    ctx.reject_unknown(call, "to_strip", positional=1)
+    chars = call.const("to_strip", 0, None)
+    if chars is None:
+        ctx.lower("whitespace: Python also strips \\x1c-\\x1f, Polars does not", 0.99)
+        return _string(column, _text(column).method(_STRIP[call.name]))
+    if not isinstance(chars, str):
+        raise ctx.todo("characters to strip must be text")
+    return _string(column, _text(column).method(_STRIP[call.name], chars))
+
+
+# -- length, padding (T07, T10) -------------------------------------------------------------
+
+@rule("series.str.len")
+def str_len(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str.len() -> str.len_chars().cast(pl.Int64).
+
+    Handles: characters, not UTF-8 bytes ("Éclair" is 6); Int64 so arithmetic cannot wrap.
+    Caveats: pandas gives float64 when a value is missing, Polars Int64 with nulls.
+    """
+    column = _column(call)
+    ctx.reject_unknown(call)
+    return _result(column, _text(column).method("len_chars").method("cast", INT64), "int")
+
+
+@rule("series.str.zfill")
+def zfill(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str.zfill(w) -> str.zfill(w).
+
+    Handles: a leading sign stays in front in both ("-0042").
+    """
+    column = _column(call)
+    ctx.reject_unknown(call, "width", positional=1)
+    width = call.const("width", 0)
+    if not isinstance(width, int):
+        raise ctx.todo("width must be an integer")
+    return _string(column, _text(column).method("zfill", width))
+
+
+_SIDES = {"ljust": "right", "rjust": "left", "center": "both"}
+
+
+@rule("series.str.pad", "series.str.center", "series.str.ljust", "series.str.rjust")
+def pad(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str.pad(w, side, fillchar) / ljust / rjust / center -> str.pad_start / pad_end.
+
+    Handles: side="both" and center() put the odd extra character where Python does
+    (left when the width is odd), T10.
+    """
+    column = _column(call)
+    if call.name == "pad":
+        ctx.reject_unknown(call, "width", "side", "fillchar", positional=3)
+        side = call.const("side", 1, "left")
+        fill = call.const("fillchar", 2, " ")
+    else:
+        ctx.reject_unknown(call, "width", "fillchar", positional=2)
+        side = _SIDES[call.name]
+        fill = call.const("fillchar", 1, " ")
+    width = call.const("width", 0)
+    if not isinstance(width, int) or not isinstance(fill, str) or len(fill) != 1:
+        raise ctx.todo("width must be an integer and fillchar one character")
+    text = _text(column)
+    if side == "left":
+        return _string(column, text.method("pad_start", width, fill))
+    if side == "right":
+        return _string(column, text.method("pad_end", width, fill))
+    if side != "both":
+        raise ctx.todo(f"side={side!r}")
+    n = text.method("len_chars").method("cast", INT64)
+    total = emit.pl("max_horizontal", emit.binop(emit.pl("lit", width), "-", n), 0)
+    left = emit.binop(emit.binop(total, "+", 1) if width % 2 else total, "//", 2)
+    start = emit.binop(n, "+", left).method("cast", emit.atom("pl.UInt32"))
+    padded = text.method("pad_start", start, fill).attr("str").method("pad_end", width, fill)
+    return _string(column, padded)
+
+
+# -- slices and single characters (T09) -----------------------------------------------------
+
+def slice_code(text: Code, start: int | None, stop: int | None, ctx: RuleContext) -> Code:
+    """Python's s[start:stop] on every string, as Polars string methods."""
+    start = start or 0
+    if stop is None:
+        return text.method("tail", -start) if start < 0 else text.method("slice", start)
+    if start == 0 or stop == 0:  # s[-3:0] is always empty
+        return text.method("head", stop if start == 0 else 0)
+    if start > 0 and stop < 0:
+        return text.method("head", stop).attr("str").method("slice", start)
+    if (start > 0) == (stop > 0):  # both from the start, or both from the end
+        return text.method("slice", start, max(stop - start, 0))
+    raise ctx.todo(f"a slice from the end to a position from the start ([{start}:{stop}])")
+
+
+def char_at(column: Column, index: int) -> Column:
+    """s.str[i]: missing (not "") where the string is too short."""
+    text = _text(column)
+    longer = emit.binop(text.method("len_chars"), ">" if index >= 0 else ">=",
+                        index if index >= 0 else -index)
+    return _string(column, emit.when(longer, text.method("slice", index, 1)))
+
+
+def _check_slice(start: object, stop: object, step: object, ctx: RuleContext) -> None:
+    if step not in (None, 1):
+        raise ctx.todo("a slice with a step")
+    if not all(v is None or isinstance(v, int) and not isinstance(v, bool) for v in (start, stop)):
+        raise ctx.todo("slice bounds must be integers")
+
+
+@rule("series.str.slice")
+def slice_(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str.slice(start, stop) -> str.slice / str.head / str.tail.
+
+    Handles: negative bounds ([-3:] -> tail(3), [:-1] -> head(-1), [1:-1] -> head(-1).slice(1)),
+    strings shorter than the slice.
+    Caveats: a step, and a negative start with a non-negative stop, are TODOs.
+    """
+    column = _column(call)
+    ctx.reject_unknown(call, "start", "stop", "step", positional=3)
+    start, stop, step = (call.const(n, i, None) for i, n in enumerate(("start", "stop", "step")))
+    _check_slice(start, stop, step, ctx)
+    return _string(column, slice_code(_text(column), start, stop, ctx))
+
+
+@rule("series.str.getitem", "series.str.get")
+def getitem(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str[a:b] / s.str[i] / s.str.get(i) -> str.slice / head / tail, or
+    pl.when(str.len_chars() > i).then(str.slice(i, 1)).
+
+    Handles: an index past the end gives a missing value in pandas ("" from str.slice), so the
+    character is taken only where the string is long enough.
+    """
+    column = _column(call)
+    if call.name == "get":
+        ctx.reject_unknown(call, "i", positional=1)
+    key = call.const("i", 0)
+    if isinstance(key, slice):
+        _check_slice(key.start, key.stop, key.step, ctx)
+        return _string(column, slice_code(_text(column), key.start, key.stop, ctx))
+    if isinstance(key, int) and not isinstance(key, bool):
+        return char_at(column, key)
+    raise ctx.todo("an index that is not an integer or a slice")
+
+
+# -- tests that give booleans (T01, T08, M11) -------------------------------------------------
+
+def predicate(column: Column, code: Code, call: PandasCall, position: int,
+              ctx: RuleContext) -> Column:
+    """A boolean test: pandas gives `na` (False by default) for a missing value."""
+    na = call.const("na", position, None)
+    if na is True:
+        return _result(column, code.method("fill_null", True), "bool")
+    if na is None or na is False or isinstance(na, float) and math.isnan(na):
+        return _result(column, code, "bool", null_is_false=True)
+    raise ctx.todo(f"na={na!r}: pandas puts that value into a boolean result")
+
+
+def _case(call: PandasCall, position: int, ctx: RuleContext, default: bool | None = True) -> int:
+    case = call.const("case", position, default)
+    if case not in (True, False, None):
+        raise ctx.todo("case must be True or False")
+    return re.I if case is False else 0
+
+
+@rule("series.str.contains")
+def contains(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str.contains(pat, case, flags, na, regex) -> str.contains(...).fill_null(na).
+
+    Handles: a regex by default, checked for Python-only features (T12); case=False and
+    flags=re.I/M/S as inline flags; regex=False as a literal (pandas then ignores flags); a
+    missing value is False or `na`; a final $ also matches before a final newline, as in Python.
+    Caveats: lookarounds, backreferences, \\< \\>, nested sets and a $ that is not the last
+    character are TODOs; \\s lowers confidence (0.98).
+    """
+    column = _column(call)
+    ctx.reject_unknown(call, "pat", "case", "flags", "na", "regex", positional=5)
+    pat = call.const("pat", 0)
+    if not isinstance(pat, str):
+        raise ctx.todo("a pattern that is not text (a compiled regex?)")
+    regex = call.const("regex", 4, True)
+    flags = (regex_flags(call, 2) if regex else 0) | _case(call, 1, ctx)  # pandas ignores flags
+    text = _text(column)
+    if not regex and not flags:
+        code = text.method("contains", pat, literal=True)
+    else:
+        pattern = polars_regex(pat if regex else re.escape(pat), flags, ctx, test=True)
+        code = text.method("contains", inline_flags(flags) + pattern)
+    return predicate(column, code, call, 3, ctx)
+
+
+@rule("series.str.match", "series.str.fullmatch")
+def match(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str.match(pat) / fullmatch(pat) -> str.contains(r"\\A(?:pat)") / r"\\A(?:pat)\\z".
+
+    Handles: case, flags and na as for contains.
+    """
+    column = _column(call)
+    ctx.reject_unknown(call, "pat", "case", "flags", "na", positional=4)
+    pat = call.const("pat", 0)
+    if not isinstance(pat, str):
+        raise ctx.todo("a pattern that is not text (a compiled regex?)")
+    flags = regex_flags(call, 2) | _case(call, 1, ctx)
+    end = r"\z" if call.name == "fullmatch" else ""
+    body = polars_regex(pat, flags, ctx, test=False)
+    anchored = inline_flags(flags) + r"\A(?:" + body + ")" + end
+    return predicate(column, _text(column).method("contains", anchored), call, 3, ctx)
+
+
+_PREFIX = {"startswith": "starts_with", "endswith": "ends_with"}
+
+
+@rule("series.str.startswith", "series.str.endswith")
+def prefix(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str.startswith(p) / endswith(p) -> str.starts_with(p) / ends_with(p), filled with na.
+
+    Handles: a tuple of prefixes (pl.any_horizontal over them); missing is False or `na`.
+    """
+    column = _column(call)
+    ctx.reject_unknown(call, "pat", "na", positional=2)
+    pat = call.const("pat", 0)
+    pats = pat if isinstance(pat, tuple) else (pat,)
+    if not pats or not all(isinstance(p, str) for p in pats):
+        raise ctx.todo("the prefix must be text or a non-empty tuple of text")
+    tests = [_text(column).method(_PREFIX[call.name], p) for p in pats]
+    code = tests[0] if len(tests) == 1 else emit.pl("any_horizontal", *tests)
+    return predicate(column, code, call, 1, ctx)
+
+
+# -- replace (T02, T03) -----------------------------------------------------------------------
+
+@rule("series.str.replace")
+def replace(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str.replace(pat, repl, n, case, flags, regex) -> str.replace_all / str.replace.
+
+    Handles: pandas 3 replaces every occurrence literally by default (replace_all,
+    literal=True); regex=True with \\1 / \\g<name> written as ${1} / ${name} and a literal $ as
+    $$; case=False and flags (pandas then reads repl as a template); n=1; n=k for literals.
+    Caveats: a callable repl, a compiled pattern, Python-only regex features and a regex
+    replacement with n=0 or n > 1 are TODOs.
+    """
+    column = _column(call)
+    ctx.reject_unknown(call, "pat", "repl", "n", "case", "flags", "regex", positional=6)
+    pat, repl = call.const("pat", 0), call.const("repl", 1)
+    if not isinstance(pat, str) or not isinstance(repl, str):
+        raise ctx.todo("a compiled pattern or a callable replacement")
+    n = call.const("n", 2, -1)
+    regex = call.const("regex", 5, False)
+    flags = regex_flags(call, 4) | _case(call, 3, ctx, default=None)
+    if not isinstance(n, int) or isinstance(n, bool):
+        raise ctx.todo("n must be an integer")
+    text = _text(column)
+    if not regex and not flags:
+        args: tuple[object, ...] = (pat, repl)
+        options: dict[str, object] = {"literal": True}
+    else:
+        if n == 0 or n > 1:  # n=0 replaces nothing or everything, depending on pandas' path
+            raise ctx.todo(f"a regex replacement with n={n}: Polars replaces the first or all")
+        source = polars_regex(pat if regex else re.escape(pat), flags, ctx, test=False)
+        groups = re.compile(source, flags).groups
+        args = (inline_flags(flags) + source, polars_template(repl, groups, ctx))
+        options = {}
+    if n < 0:
+        return _string(column, text.method("replace_all", *args, **options))
+    if n != 1:
+        options["n"] = n
+    return _string(column, text.method("replace", *args, **options))

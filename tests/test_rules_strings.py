@@ -1,0 +1,332 @@
+"""Rule cases and differential checks for porter/rules/strings.py (the .str accessor).
+
+pandas is the reference implementation: every differential check runs the snippet with pandas
+and its conversion with Polars and compares the variables they computed.
+"""
+
+from __future__ import annotations
+
+import pytest
+
+from porter.rules.strings import regex_issues
+from rule_checks import check_ports, check_todo, check_unchanged
+from support import convert, differential
+
+# Missing values (None and NaN), an empty string, accents, duplicates, a trailing newline, a
+# sign, regex and template metacharacters. "ß", ligatures and \x1c are known differences,
+# checked on their own below.
+VALUES = ('["Apple pie", None, "", "Éclair", "ünïcode", "apple", "apple", "a.b.c", "  pad  ",'
+          ' "xxhixx", "abc\\n", "-42", "x$y", np.nan]')
+HEAD = "import re\nimport numpy as np\nimport pandas as pd\n"
+FRAME = HEAD + f'df = pd.DataFrame({{"s": {VALUES}}})\n'
+
+
+def _snippet(expr: str) -> str:
+    """`expr` (written over `df`) on the test frame and on an empty frame of the same type."""
+    on_empty = expr.replace("df[", "empty[")
+    return (FRAME + 'empty = df[df["s"] == "no such value"]\n'
+            f"df[\"out\"] = {expr}\nempty[\"out\"] = {on_empty}\n"
+            "result = df\nresult_empty = empty\n")
+
+
+def _port(before: str, fragment: str) -> pytest.ParameterSet:
+    return pytest.param(before, fragment, id=before)
+
+
+# -- ports ----------------------------------------------------------------------------------
+
+PORTS = [
+    _port('df["s"].str.lower()', 'pl.col("s").str.to_lowercase()'),
+    _port('df["s"].str.upper()', 'pl.col("s").str.to_uppercase()'),
+    _port('df["s"].str.title()', 'pl.col("s").str.to_titlecase()'),
+    _port('df["s"].str.strip()', 'pl.col("s").str.strip_chars()'),
+    _port('df["s"].str.strip("x ")', 'pl.col("s").str.strip_chars("x ")'),
+    _port('df["s"].str.lstrip()', 'pl.col("s").str.strip_chars_start()'),
+    _port('df["s"].str.rstrip("\\n")', 'pl.col("s").str.strip_chars_end("\\n")'),
+    _port('df["s"].str.len()', 'pl.col("s").str.len_chars().cast(pl.Int64)'),
+    _port('df["s"].str.contains("app")', 'pl.col("s").str.contains("app").fill_null(False)'),
+    _port('df["s"].str.contains("app", case=False)', 'str.contains("(?i)app").fill_null(False)'),
+    _port('df["s"].str.contains(".", regex=False)',
+          'str.contains(".", literal=True).fill_null(False)'),
+    _port('df["s"].str.contains(".", regex=False, case=False)', 'str.contains("(?i)\\\\.")'),
+    _port('df["s"].str.contains("a.c", flags=re.I | re.S)', 'str.contains("(?is)a.c")'),
+    _port('df["s"].str.contains("app", na=True)', 'str.contains("app").fill_null(True)'),
+    _port('df["s"].str.contains("c$")', 'str.contains("c\\\\n?$")'),
+    _port('df["s"].str.match("a")', 'str.contains("\\\\A(?:a)")'),
+    _port('df["s"].str.fullmatch("a.c")', 'str.contains("\\\\A(?:a.c)\\\\z")'),
+    _port('df["s"].str.startswith("a")', 'pl.col("s").str.starts_with("a").fill_null(False)'),
+    _port('df["s"].str.startswith(("a", "É"))',
+          'pl.any_horizontal(pl.col("s").str.starts_with("a"), pl.col("s").str.starts_with("É"))'),
+    _port('df["s"].str.endswith("e", na=True)', 'str.ends_with("e").fill_null(True)'),
+    _port('df["s"].str.replace(".", "!")', 'str.replace_all(".", "!", literal=True)'),
+    _port('df["s"].str.replace("x", "y", n=1)', 'str.replace("x", "y", literal=True)'),
+    _port('df["s"].str.replace("x", "y", n=2)', 'str.replace("x", "y", literal=True, n=2)'),
+    _port('df["s"].str.replace(r"(\\w)\\.(\\w)", r"\\2-\\1$", regex=True)',
+          'str.replace_all("(\\\\w)\\\\.(\\\\w)", "${2}-${1}$$")'),
+    _port('df["s"].str.replace(r"(?P<c>p)", r"<\\g<c>>", regex=True)', '"<${c}>"'),
+    _port('df["s"].str.replace("A", "-", case=False)', 'str.replace_all("(?i)A", "-")'),
+    _port('df["s"].str.slice(1, 3)', 'pl.col("s").str.slice(1, 2)'),
+    _port('df["s"].str.slice(1, -1)', 'pl.col("s").str.head(-1).str.slice(1)'),
+    _port('df["s"].str.slice(-3)', 'pl.col("s").str.tail(3)'),
+    _port('df["s"].str[:3]', 'pl.col("s").str.head(3)'),
+    _port('df["s"].str[1]',
+          'pl.when(pl.col("s").str.len_chars() > 1).then(pl.col("s").str.slice(1, 1))'),
+    _port('df["s"].str.get(-1)',
+          'pl.when(pl.col("s").str.len_chars() >= 1).then(pl.col("s").str.slice(-1, 1))'),
+    _port('df["s"].str.zfill(5)', 'pl.col("s").str.zfill(5)'),
+    _port('df["s"].str.pad(8)', 'pl.col("s").str.pad_start(8, " ")'),
+    _port('df["s"].str.pad(8, side="right", fillchar="*")', 'pl.col("s").str.pad_end(8, "*")'),
+    _port('df["s"].str.center(7, "-")', '.str.pad_end(7, "-")'),
+]
+
+
+@pytest.mark.parametrize("before, expected", PORTS)
+def test_ports(before: str, expected: str) -> None:
+    check_ports(FRAME + f'df["out"] = {before}\n', expected)
+
+
+TODOS = [
+    pytest.param('df["s"].str.split(",")', "series.str.split", id="split"),
+    pytest.param('df["s"].str.rsplit(",", n=1)', "series.str.rsplit", id="rsplit"),
+    pytest.param('df["s"].str.extract(r"(\\w)(\\w)")', "series.str.extract", id="extract"),
+    pytest.param('df["s"].str.extractall(r"(\\w)")', "series.str.extractall", id="extractall"),
+    pytest.param('df["s"].str.cat(sep="|")', "series.str.cat", id="cat"),
+    pytest.param('df["s"].str.findall("p")', "series.str.findall", id="findall"),
+    pytest.param('df["s"].str.count("p")', "series.str.count", id="count"),
+    pytest.param('df["s"].str.get_dummies(sep=".")', "series.str.get_dummies", id="get_dummies"),
+    pytest.param('df["s"].str.capitalize()', "series.str.capitalize", id="capitalize"),
+    pytest.param('df["s"].str.contains("a(?=p)")', "series.str.contains", id="lookahead"),
+    pytest.param('df["s"].str.contains(r"(p)\\1")', "series.str.contains", id="backreference"),
+    pytest.param('df["s"].str.contains(r"\\<a")', "series.str.contains",
+                 id="backslash-less-than is a word boundary in Rust"),
+    pytest.param('df["s"].str.contains("[[a]]")', "series.str.contains", id="nested set"),
+    pytest.param('df["s"].str.contains("c$|x")', "series.str.contains",
+                 id="dollar that is not the last character"),
+    pytest.param('df["s"].str.contains(r"a\\Z")', "series.str.contains",
+                 id="backslash-Z is rejected by Polars"),
+    pytest.param('df["s"].str.contains("a", flags=re.X)', "series.str.contains", id="verbose"),
+    pytest.param('df["s"].str.contains(re.compile("a"))', "series.str.contains",
+                 id="compiled pattern"),
+    pytest.param('df["s"].str.replace("c$", "!", regex=True)', "series.str.replace",
+                 id="replace with a final dollar"),
+    pytest.param('df["s"].str.replace("p", lambda m: m.group(0).upper(), regex=True)',
+                 "series.str.replace", id="callable replacement"),
+    pytest.param('df["s"].str.replace("[xy]", "z", regex=True, n=2)', "series.str.replace",
+                 id="regex replacement of n > 1 matches (Polars lacks it)"),
+    pytest.param('df["s"].str.replace("x", "-", case=False, n=0)', "series.str.replace",
+                 id="n=0 on pandas' regex path replaces every match"),
+    pytest.param('df["s"].str.slice(0, 5, 2)', "series.str.slice", id="slice step"),
+    pytest.param('df["s"].str[-3:2]', "series.str.getitem",
+                 id="slice from the end to a position from the start"),
+]
+
+
+@pytest.mark.parametrize("before, key", TODOS)
+def test_todo(before: str, key: str) -> None:
+    check_todo(FRAME + f"result = {before}\n", key)
+
+
+PANDAS_RAISES = [
+    pytest.param('df["s"].str.replace("(p)", r"\\2", regex=True)', "series.str.replace",
+                 id="replacement refers to a missing group"),
+    pytest.param('df["s"].str.startswith(["a"])', "series.str.startswith", id="a list of prefixes"),
+    pytest.param('df["s"].str.pad(8, side="middle")', "series.str.pad", id="unknown side"),
+]
+
+
+@pytest.mark.parametrize("before, key", PANDAS_RAISES)
+def test_todo_where_pandas_raises(before: str, key: str) -> None:
+    # pandas raises on these, so the hand-over is not run; porter must not invent a result
+    text = convert(FRAME + f"result = {before}\n").converted_text
+    assert f"# TODO(porter): {key}" in text, text
+
+
+UNCHANGED = [
+    pytest.param('import pandas as pd\nwords = "a,b".split(",")\nloud = "x".upper()\n',
+                 id="methods of a Python string"),
+    pytest.param("import pandas as pd\nimport re\nfound = re.compile('a$').search('ba')\n",
+                 id="re on plain text"),
+]
+
+
+@pytest.mark.parametrize("before", UNCHANGED)
+def test_unchanged(before: str) -> None:
+    check_unchanged(before)
+
+
+# -- the regex check (T12) ----------------------------------------------------------------------
+
+@pytest.mark.parametrize("pattern, issue", [
+    (r"a\Z", "rejects"), ("a{,3}", "rejects"), ("a(?#note)", "rejects"), (r"(?a)\w", "rejects"),
+    (r"\N{BULLET}", "rejects"), ("a++", "possessive"), ("(?>a)", "atomic"),
+    ("(a)?(?(1)b|c)", "conditional"), ("a(?!b)", "lookaround"), ("(?<=a)b", "lookaround"),
+    (r"(a)\1", "backreference"), ("[a&&b]", "nested set"), ("[a-c--b]", "nested set"),
+    (r"\<a", "word boundaries"), ("c$", "final newline"), ("(?x)[ a]", "verbose"),
+    ("a[", "not a valid"),
+])
+def test_python_only_patterns_are_found(pattern: str, issue: str) -> None:
+    assert any(issue in found for found in regex_issues(pattern)), regex_issues(pattern)
+
+
+@pytest.mark.parametrize("pattern", [
+    r"\d+", "(?P<n>a)", "(?i)a", r"\bword\b", "(?m)c$", r"\x41\u0042", r"[\w.-]+@\w+",
+])
+def test_patterns_that_mean_the_same(pattern: str) -> None:
+    assert regex_issues(pattern) == []
+
+
+# -- differential -----------------------------------------------------------------------------
+
+SAME = [
+    'df["s"].str.lower()',
+    'df["s"].str.upper()',
+    'df["s"].str.title()',
+    'df["s"].str.strip()',
+    'df["s"].str.strip("x ")',
+    'df["s"].str.lstrip()',
+    'df["s"].str.lstrip("a-")',
+    'df["s"].str.rstrip()',
+    'df["s"].str.rstrip("\\n")',
+    'df["s"].str.len()',
+    'df["s"].str.len() - 5',
+    'df["s"].str.contains("app")',
+    'df["s"].str.contains("app", case=False)',
+    'df["s"].str.contains("APP", flags=re.IGNORECASE)',
+    'df["s"].str.contains(".", regex=False)',
+    'df["s"].str.contains("$", regex=False)',
+    'df["s"].str.contains("A.", regex=False, case=False)',
+    'df["s"].str.contains("app", na=True)',
+    'df["s"].str.contains("app", na=False)',
+    'df["s"].str.contains("app", na=pd.NA)',
+    'df["s"].str.contains("")',
+    'df["s"].str.contains("é|ü")',
+    'df["s"].str.contains(r"\\d+")',
+    'df["s"].str.contains("c$")',
+    'df["s"].str.contains(r"^\\w+$")',
+    'df["s"].str.contains(r"(?m)^x.y$")',
+    'df["s"].str.contains(r"\\.b\\.")',
+    'df["s"].str.match("a")',
+    'df["s"].str.match("A", case=False)',
+    'df["s"].str.match("a|ab", na=True)',
+    'df["s"].str.fullmatch(r"a\\w*")',
+    'df["s"].str.fullmatch("apple|apple pie", case=False)',
+    'df["s"].str.startswith("a")',
+    'df["s"].str.startswith(("a", "É"))',
+    'df["s"].str.startswith("")',
+    'df["s"].str.startswith("a", na=True)',
+    'df["s"].str.endswith("e")',
+    'df["s"].str.endswith(("e", "\\n"))',
+    'df["s"].str.replace(".", "!")',
+    'df["s"].str.replace("p", "")',
+    'df["s"].str.replace("", "-")',
+    'df["s"].str.replace("$", "\\\\")',
+    'df["s"].str.replace("x", "y", n=1)',
+    'df["s"].str.replace("x", "y", n=2)',
+    'df["s"].str.replace("x", "y", n=0)',
+    'df["s"].str.replace(r"(\\w)\\.(\\w)", r"\\2-\\1$", regex=True)',
+    'df["s"].str.replace(r"(?P<first>\\w)", r"<\\g<first>>", regex=True, n=1)',
+    'df["s"].str.replace(r"x*", "-", regex=True)',
+    'df["s"].str.replace(r"\\s+", " ", regex=True)',
+    'df["s"].str.replace("P", "$0", case=False)',
+    'df["s"].str.replace("X", r"\\t", flags=re.I)',
+    'df["s"].str.slice(1, 3)',
+    'df["s"].str.slice(1)',
+    'df["s"].str.slice(stop=2)',
+    'df["s"].str.slice(-3)',
+    'df["s"].str.slice(-3, -1)',
+    'df["s"].str.slice(1, -1)',
+    'df["s"].str.slice(0, -2)',
+    'df["s"].str.slice(3, 1)',
+    'df["s"].str.slice(3, 0)',
+    'df["s"].str.slice(-3, 0)',
+    'df["s"].str[:3]',
+    'df["s"].str[1:]',
+    'df["s"].str[-2:]',
+    'df["s"].str[1:-1]',
+    'df["s"].str[-4:-2]',
+    'df["s"].str[-2:-4]',
+    'df["s"].str[0]',
+    'df["s"].str[1]',
+    'df["s"].str[-1]',
+    'df["s"].str[7]',
+    'df["s"].str.get(0)',
+    'df["s"].str.get(-2)',
+    'df["s"].str.zfill(6)',
+    'df["s"].str.pad(8)',
+    'df["s"].str.pad(8, side="right", fillchar="*")',
+    'df["s"].str.pad(8, side="both", fillchar="*")',
+    'df["s"].str.pad(7, side="both")',
+    'df["s"].str.center(9, "-")',
+    'df["s"].str.center(4)',
+    'df["s"].str.ljust(6, ".")',
+    'df["s"].str.rjust(6)',
+]
+
+
+@pytest.mark.parametrize("expr", SAME)
+def test_matches_pandas(expr: str) -> None:
+    # pandas is the reference implementation
+    result = differential(_snippet(expr), "result", "result_empty")
+    assert "TODO(porter)" not in result.converted_text, result.converted_text
+
+
+@pytest.mark.parametrize("expr", [
+    '~df["s"].str.contains("p")',
+    'df["s"].str.startswith("a") | df["s"].str.endswith("e")',
+    'df["s"].str.contains("p") & (df["s"].str.len() > 5)',
+])
+def test_masks_treat_missing_as_false(expr: str) -> None:
+    # pandas is the reference implementation: missing is False, so ~ keeps the missing rows
+    differential(FRAME + f"result = df[{expr}]\n")
+
+
+def test_duplicates_and_unicode_lengths() -> None:
+    # pandas is the reference implementation: characters, not UTF-8 bytes ("Éclair" is 6)
+    differential(HEAD + """
+df = pd.DataFrame({"s": ["Éclair", "Éclair", "ünïcode", "日本語", None]})
+df["n"] = df["s"].str.len()
+df["u"] = df["s"].str.upper()
+df["first"] = df["s"].str[0]
+result = df
+""")
+
+
+# -- confidence and known differences ---------------------------------------------------------
+
+def _site(source: str, key: str):
+    return next(s for s in convert(source).sites if s.key == key)
+
+
+def test_confidence_is_lowered_where_a_difference_remains() -> None:
+    assert _site(FRAME + 'x = df["s"].str.upper()\n', "series.str.upper").confidence == 0.98
+    strip = _site(FRAME + 'x = df["s"].str.strip()\n', "series.str.strip")
+    assert strip.confidence == 0.99 and "x1c" in strip.message
+    assert _site(FRAME + 'x = df["s"].str.strip(" ")\n', "series.str.strip").confidence == 1.0
+    space = _site(FRAME + 'x = df["s"].str.contains(r"\\s")\n', "series.str.contains")
+    assert space.confidence == 0.98 and "x1c" in space.message
+
+
+def test_each_call_of_a_chain_is_reported() -> None:
+    sites = convert(FRAME + 'df["code"] = df["s"].str.strip().str.upper().str.replace("-", "")\n'
+                    ).sites
+    found = {s.key: s.confidence for s in sites}
+    assert found["series.str.strip"] == 0.99
+    assert found["series.str.upper"] == 0.98
+    assert found["series.str.replace"] == 1.0
+    assert "frame.getitem.column" in found
+
+
+@pytest.mark.xfail(strict=True, raises=AssertionError,
+                   reason="documented caveat (confidence 0.98): pandas upper-cases 'ß' to 'ẞ' "
+                   "and keeps ligatures, Polars writes 'SS' and 'FF'")
+def test_known_difference_sharp_s_upper() -> None:
+    differential(HEAD + 'df = pd.DataFrame({"s": ["ß", "ﬀ"]})\n'
+                 'df["out"] = df["s"].str.upper()\nresult = df\n')
+
+
+@pytest.mark.xfail(strict=True, raises=AssertionError,
+                   reason="documented caveat (confidence 0.99): Python strips \\x1c-\\x1f as "
+                   "whitespace, Polars does not")
+def test_known_difference_strip_separators() -> None:
+    differential(HEAD + 'df = pd.DataFrame({"s": ["\\x1ca\\x1c"]})\n'
+                 'df["out"] = df["s"].str.strip()\nresult = df\n')
