@@ -75,5 +75,8 @@ def convert_file(path: str | Path, *, options: Options | None = None,
 
 
 def _site(draft: SiteDraft) -> Site:
+    message = draft.message
+    if draft.suggestion:
+        message += f"; suggested: {' '.join(draft.suggestion.split())}"
     return Site(draft.line, draft.end_line, draft.key, draft.rule, draft.status,
-                draft.confidence, draft.message)
+                draft.confidence, message)

@@ -15,7 +15,7 @@ import sys
 
 from porter.api import convert_file
 from porter.cli import report_json, summary_text
-from porter.model import FileResult
+from porter.model import FileResult, Options
 
 ROOT = Path(__file__).resolve().parent.parent
 
@@ -37,7 +37,8 @@ def main(argv: list[str] | None = None) -> int:
     print(f"{'script':<28} {'converted':>9} {'handover':>9} {'TODO':>5}  lowest confidence")
     for script in demo_scripts(args.corpus):
         target = args.out / script.name
-        result = convert_file(script, output=str(target))
+        # each script runs in its own folder: its input schemas are read from there
+        result = convert_file(script, output=str(target), options=Options(data_dir=str(script.parent)))
         target.write_text(result.converted_text, encoding="utf-8")
         results.append(result)
         summary = result.summary()

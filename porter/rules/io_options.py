@@ -12,6 +12,20 @@ import polars as pl
 PANDAS_NA_TOKENS = ["", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
                     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null"]
 NA_CONSTANT = "PANDAS_NA_VALUES"
+# An expression, defined once at the top of a converted script, that writes every datetime
+# column the way pandas' to_csv does (decided per column from the data).
+CSV_DATETIMES_CONSTANT = "PANDAS_CSV_DATETIMES"
+CSV_DATETIMES_DEFINITION = """\
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+"""
 
 # dtype spellings in read_csv(dtype=...) / astype(...) → (Polars dtype code, porter dtype name)
 DTYPES: dict[str, tuple[str, str]] = {

@@ -128,6 +128,10 @@ def expr_in(value: Value, frame: Frame) -> Code:
             return value.agg.code
         return value.code
     if isinstance(value, Opaque):
+        if value.is_const and value.code.text.isidentifier() and value.code.text not in (
+                "True", "False", "None"):
+            # a named constant stays named; text is wrapped, or Polars would read a column name
+            return emit.pl("lit", value.code) if isinstance(value.const, str) else value.code
         if value.is_const:
             return emit.as_expr(value.const)
         return value.code

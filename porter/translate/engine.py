@@ -110,6 +110,7 @@ def _learn_functions(services: Services, returns: dict[str, list[Value]]) -> dic
         calls = services.call_sites.get(name, [])
         frame_params = set()
         schemas = []
+        consts: list[tuple[str, Any]] = []
         for i, param in enumerate(function.params):
             kinds = [c[i] if i < len(c) else None for c in calls]
             if kinds and all(isinstance(k, Frame) for k in kinds):
@@ -117,20 +118,31 @@ def _learn_functions(services: Services, returns: dict[str, list[Value]]) -> dic
                 shapes = {(k.columns, tuple(sorted(k.dtypes))) for k in kinds}  # type: ignore[union-attr]
                 if len(shapes) == 1:
                     schemas.append((param, shapes.pop()))
+            elif kinds and all(isinstance(k, Opaque) and k.is_const and isinstance(k.const, str)
+                               for k in kinds) and len({k.const for k in kinds}) == 1:  # type: ignore[union-attr]
+                consts.append((param, kinds[0].const))  # type: ignore[union-attr]
         returned = returns.get(name, [])
         template: Value | None = None
         if returned and all(isinstance(r, Frame) for r in returned):
-            template = Frame(Code(""), rows=fresh_token(), labels_intact=False)
+            shapes = {(r.columns, tuple(sorted(r.dtypes)), r.index) for r in returned}  # type: ignore[union-attr]
+            columns, dtypes, index = shapes.pop() if len(shapes) == 1 else (None, (), ())
+            template = Frame(Code(""), rows=fresh_token(), labels_intact=False, columns=columns,
+                             dtypes=dtypes, index=index)
         elif returned and all(isinstance(r, (Column, Scalar)) for r in returned):
             template = returned[0]
         updated[name] = replace(function, frame_params=frozenset(frame_params), returns=template,
-                                param_schemas=tuple(schemas))
+                                param_schemas=tuple(schemas), param_consts=tuple(consts))
     # keep templates stable between passes so the fixpoint check can succeed
     for name, function in updated.items():
         old = services.functions[name]
-        if isinstance(old.returns, Frame) and isinstance(function.returns, Frame):
+        if isinstance(old.returns, Frame) and isinstance(function.returns, Frame) \
+                and _same_shape(old.returns, function.returns):
             updated[name] = replace(function, returns=old.returns)
     return updated
+
+
+def _same_shape(a: Frame, b: Frame) -> bool:
+    return (a.columns, tuple(sorted(a.dtypes)), a.index) == (b.columns, tuple(sorted(b.dtypes)), b.index)
 
 
 # -- the walk over statements ---------------------------------------------------------------
@@ -216,6 +228,8 @@ class _Walker:
             if function is not None and name in function.frame_params:
                 columns, dtypes = dict(function.param_schemas).get(name, (None, ()))
                 local[name] = Frame(emit.atom(name), labels_intact=False, columns=columns, dtypes=dtypes)
+            elif function is not None and name in dict(function.param_consts):
+                local[name] = Opaque(emit.atom(name), const=dict(function.param_consts)[name])
             else:
                 local.pop(name, None)
         outer = self.function

@@ -58,6 +58,8 @@ class LocalFunction:
     returns: Value | None  # a template of the return value (Frame), when known
     # what every call passes for a frame parameter, when the calls agree: (columns, dtypes)
     param_schemas: tuple[tuple[str, tuple[tuple[str, ...] | None, tuple[tuple[str, str], ...]]], ...] = ()
+    # literal values every call passes (a file name), so rules can look inputs up
+    param_consts: tuple[tuple[str, Any], ...] = ()
 
 
 @dataclass

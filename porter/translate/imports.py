@@ -5,7 +5,9 @@ from __future__ import annotations
 import libcst as cst
 
 from porter.analysis.imports import ImportFacts
-from porter.rules.io_options import NA_CONSTANT, PANDAS_NA_TOKENS
+from porter.rules.io_options import (
+    CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION, NA_CONSTANT, PANDAS_NA_TOKENS,
+)
 
 
 class _NameUses(cst.CSTVisitor):
@@ -64,6 +66,8 @@ def fix_imports(module: cst.Module, facts: ImportFacts) -> cst.Module:
         body.append(stmt)
     if not inserted:
         body = _insert_at_top(body)
+    if CSV_DATETIMES_CONSTANT in used and not _defines(module, CSV_DATETIMES_CONSTANT):
+        body = _insert_after_imports(body, _constant(CSV_DATETIMES_DEFINITION))
     if NA_CONSTANT in used and not _defines(module, NA_CONSTANT):
         body = _insert_after_imports(body, _na_constant())
     return module.with_changes(body=body)
@@ -93,6 +97,14 @@ def _na_constant() -> cst.SimpleStatementLine:
     assert isinstance(stmt, cst.SimpleStatementLine)
     comment = cst.Comment("# Text that pandas' read_csv reads as a missing value.")
     return stmt.with_changes(leading_lines=[cst.EmptyLine(), cst.EmptyLine(comment=comment)])
+
+
+def _constant(definition: str) -> cst.SimpleStatementLine:
+    module = cst.parse_module(definition)
+    stmt = module.body[0]
+    assert isinstance(stmt, cst.SimpleStatementLine)
+    comments = [line for line in module.header if line.comment is not None]
+    return stmt.with_changes(leading_lines=[cst.EmptyLine(), *comments])
 
 
 def _insert_after_imports(body: list[cst.CSTNode], stmt: cst.CSTNode) -> list[cst.CSTNode]:
