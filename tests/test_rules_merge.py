@@ -173,13 +173,13 @@ def test_ports(source: str, expected: str) -> None:
 UNKNOWN_COLUMNS = [
     pytest.param(
         'result = data.merge(right, on="k")',
-        '''data.rename(lambda c: c + "_x" if c in right.collect_schema() and c not in ("k",) else c)
-               .join(right.rename(lambda c: c + "_y" if c in data.collect_schema() and c not in ("k",) else c),
+        '''data.rename(lambda c, other=right.collect_schema().names(): c + "_x" if c in other and c not in ("k",) else c)
+               .join(right.rename(lambda c, other=data.collect_schema().names(): c + "_y" if c in other and c not in ("k",) else c),
                      on="k", how="inner", nulls_equal=True, maintain_order="left_right")''',
         id="default suffixes: the shared columns are found from the schemas"),
     pytest.param(
         'result = data.merge(right, on="k", suffixes=("", "_r"))',
-        '''data.join(right.rename(lambda c: c + "_r" if c in data.collect_schema() and c not in ("k",) else c),
+        '''data.join(right.rename(lambda c, other=data.collect_schema().names(): c + "_r" if c in other and c not in ("k",) else c),
                      on="k", how="inner", nulls_equal=True, maintain_order="left_right")''',
         id="empty left suffix renames the right side only"),
 ]

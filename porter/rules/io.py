@@ -9,7 +9,7 @@ from typing import Any
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.rules.io_options import DTYPES, NA_CONSTANT, PANDAS_NA_TOKENS
+from porter.rules.io_options import CSV_DATETIMES_CONSTANT, DTYPES, NA_CONSTANT, PANDAS_NA_TOKENS
 from porter.translate import handover
 from porter.translate.context import PandasCall, RuleContext, Unsupported, derive, select_columns
 from porter.translate.values import Frame, Module, Opaque, Scalar, Value
@@ -240,13 +240,7 @@ def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
         out.append(emit.atom("pl.selectors.boolean()").method(
             "replace_strict", {True: "True", False: "False"}))
     if "datetime" in kinds or (ctx.datetimes_possible and not complete):
-        stamp = emit.atom("pl.selectors.datetime()")
-        midnight = emit.binop(stamp, "==", stamp.attr("dt").method("truncate", "1d")).method("all")
-        whole = emit.binop(stamp.attr("dt").method("microsecond"), "==", 0).method("all")
-        out.append(
-            emit.pl("when", midnight).method("then", stamp.attr("dt").method("strftime", "%Y-%m-%d"))
-            .method("when", whole).method("then", stamp.attr("dt").method("strftime", "%Y-%m-%d %H:%M:%S"))
-            .method("otherwise", stamp.attr("dt").method("strftime", "%Y-%m-%d %H:%M:%S%.6f")))
+        out.append(emit.atom(CSV_DATETIMES_CONSTANT))
     return out
 
 

@@ -237,8 +237,11 @@ def _renamed_at_run_time(side: _Side, other_schema: Code, keys: tuple[str, ...],
                          suffix: str) -> _Side:
     if not suffix:
         return side
-    test = f"c in {other_schema.text}" + (f" and c not in {emit.lit(keys).text}" if keys else "")
-    rename = Code(f"lambda c: c + {emit.lit(suffix).text} if {test} else c")
+    # the other schema is read when the lambda is made (a default argument): reading it inside
+    # the rename would re-enter Polars' plan resolution
+    test = "c in other" + (f" and c not in {emit.lit(keys).text}" if keys else "")
+    rename = Code(f"lambda c, other={other_schema.text}.names(): "
+                  f"c + {emit.lit(suffix).text} if {test} else c")
     return _Side(side.code.method("rename", rename), None, {}, side.keys, side.index)
 
 
