@@ -118,6 +118,14 @@ def _may_name_a_frame(line: str, result: FileResult) -> bool:
 
 
 @pytest.mark.parametrize("name,source,stem", CASES, ids=IDS)
+def test_every_site_points_at_a_source_line(name, source, stem, conversions):
+    result = conversions[name]
+    last = len(result.original_text.splitlines())
+    for site in result.sites:
+        assert 1 <= site.line <= site.end_line <= last, site
+
+
+@pytest.mark.parametrize("name,source,stem", CASES, ids=IDS)
 def test_comments_are_kept(name, source, stem, conversions):
     result = conversions[name]
     for line in result.original_text.splitlines():

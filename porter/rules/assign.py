@@ -67,7 +67,8 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
 def setitem(call: PandasCall, ctx: RuleContext) -> Value:
     """df["c"] = expr -> df = df.with_columns(c=expr).
 
-    Handles: a comparison that met a missing value is stored as False, like pandas.
+    Handles: a comparison that met a missing value is stored as False, like pandas; one value
+    into several columns (df[["a", "b"]] = 0).
     Caveats: a Series from another frame aligns on the index in pandas: a TODO.
     """
     frame = call.receiver
@@ -76,6 +77,13 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(key, Opaque) and isinstance(key.const, str):
         code, dtype = value_expr(value, frame, ctx)
         return with_columns(frame, [(key.const, code, dtype)])
+    if isinstance(key, Opaque) and isinstance(key.const, list) and key.const \
+            and all(isinstance(k, str) for k in key.const) \
+            and isinstance(value, Opaque) and value.is_const \
+            and not isinstance(value.const, (list, tuple, dict)):
+        # df[["a", "b"]] = 0 broadcasts one value into every named column
+        code, dtype = value_expr(value, frame, ctx)
+        return with_columns(frame, [(k, code, dtype) for k in key.const])
     if isinstance(key, Opaque) and not key.is_const and key.pytype == "str":
         code, _ = value_expr(value, frame, ctx)
         new = frame.code.method("with_columns", code.method("alias", key.code))
@@ -100,7 +108,8 @@ def assign(call: PandasCall, ctx: RuleContext) -> Value:
     made: set[str] = set()
     for name, value in call.kwargs.items():
         if isinstance(value, Opaque) and isinstance(value.node, cst.Lambda):
-            value = frame_lambda(value.node, frame, ctx)
+            # the lambda receives the frame with the earlier keywords' columns already in it
+            value = frame_lambda(value.node, with_columns(frame, pending), ctx)
         if isinstance(value, Column) and value.refs & made:
             frame = with_columns(frame, pending)
             pending, made = [], set()
@@ -140,6 +149,10 @@ def rename(call: PandasCall, ctx: RuleContext) -> Value:
     columns = frame.columns
     if columns is not None:
         names = {k: v for k, v in names.items() if k in columns}
+        after = [names.get(c, c) for c in columns]
+        if len(set(after)) != len(after):
+            raise Unsupported("the new names repeat a column name: pandas keeps two columns of "
+                              "that name, Polars cannot")
         code = frame.code.method("rename", names) if names else frame.code
         new_columns = tuple(names.get(c, c) for c in columns)
     else:
@@ -199,11 +212,16 @@ def set_columns(call: PandasCall, ctx: RuleContext) -> Value:
             return derive(frame, code, same_rows=True, columns=None, dtypes=())
         raise Unsupported("new column names from a pandas value")
     new = [str(v) for v in value.const]
+    if len(set(new)) != len(new):
+        raise Unsupported("the new names repeat a name: pandas keeps two columns of that name, "
+                          "Polars cannot")
     if frame.columns is not None:
         if len(new) != len(frame.columns):
             raise Unsupported("the number of names differs from the number of columns")
         mapping = {o: n for o, n in zip(frame.columns, new) if o != n}
         code = frame.code.method("rename", mapping)
+        kinds = tuple((n, k) for o, n in zip(frame.columns, new) if (k := frame.dtype(o)))
+        return derive(frame, code, same_rows=True, columns=tuple(new), dtypes=kinds)
     else:
         code = frame.code.method("rename", emit.call(
             "dict", emit.call("zip", frame.code.method("collect_schema").method("names"), new)))

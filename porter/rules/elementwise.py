@@ -25,7 +25,7 @@ def frame_lambda(node: cst.Lambda, frame: Frame, ctx: RuleContext) -> Value:
     params = node.params.params
     if len(params) != 1 or node.params.star_arg not in (None, cst.MaybeSentinel.DEFAULT):
         raise Unsupported("a lambda with more than one parameter")
-    return _checked(ctx.evaluate(node.body, {params[0].name.value: frame}))
+    return _checked(ctx.evaluate(node.body, {params[0].name.value: frame}), ctx)
 
 
 def element_lambda(node: cst.Lambda, column: Column, ctx: RuleContext) -> Column:
@@ -34,7 +34,7 @@ def element_lambda(node: cst.Lambda, column: Column, ctx: RuleContext) -> Column
     if len(params) != 1 or node.params.star_arg not in (None, cst.MaybeSentinel.DEFAULT):
         raise Unsupported("a lambda with more than one parameter")
     element = replace(column, element=True, sites=())
-    result = _checked(ctx.evaluate(node.body, {params[0].name.value: element}))
+    result = _checked(ctx.evaluate(node.body, {params[0].name.value: element}), ctx)
     if isinstance(result, Opaque) and result.is_const:
         return derived_column(column, emit.pl("lit", result.const), name=column.name)
     if not isinstance(result, Column):
@@ -43,10 +43,14 @@ def element_lambda(node: cst.Lambda, column: Column, ctx: RuleContext) -> Column
     return replace(result, code=code, element=False, name=column.name, null_is_false=False, sites=())
 
 
-def _checked(value: Value) -> Value:
+def _checked(value: Value, ctx: RuleContext) -> Value:
     if any(site.status == "todo" for site in value.sites):
         raise Unsupported("part of the function has no expression form: "
                           + "; ".join(s.message for s in value.sites if s.status == "todo"))
+    # the lambda's own sites are folded into this one: keep their lowered confidences
+    for site in value.sites:
+        if site.confidence < ctx.confidence:
+            ctx.lower(f"{site.key}: {site.message}", site.confidence)
     return value
 
 
@@ -68,15 +72,18 @@ def map_(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.reject_unknown(call, "arg", "func", "na_action", positional=1)
     function = _function(call)
     if isinstance(function, Opaque) and isinstance(function.const, dict):
-        mapping = function.const
         if call.name == "apply":
             raise Unsupported("apply with a dict")
+        # a named dict stays named in the output; a literal is written out
+        mapping: object = function.code if function.code.text.isidentifier() else function.const
         return derived_column(column, column.code.method("replace_strict", mapping, default=None),
                               name=column.name)
     if isinstance(function, Opaque) and isinstance(function.node, cst.Lambda):
         result = element_lambda(function.node, column, ctx)
         if call.const("na_action", None, None) == "ignore":
-            ctx.lower("na_action='ignore' skips missing values; the expression keeps them missing", 1.0)
+            # pandas does not call the function on a missing value: it stays missing
+            code = emit.when(column.code.method("is_not_null"), result.code)
+            return replace(result, code=code)
         return result
     raise Unsupported("a named function: write its body as a lambda or as column expressions")
 
@@ -95,6 +102,12 @@ def _element(call: PandasCall) -> Column:
     return call.receiver
 
 
+def _value(element: Column, code: Code, **changes: object) -> Column:
+    """One value computed from the lambda's parameter: still a value, so methods chain
+    (`s.strip().upper()`)."""
+    return replace(derived_column(element, code, **changes), element=True)  # type: ignore[arg-type]
+
+
 @rule("element.upper", "element.lower", "element.title", "element.strip", "element.lstrip",
       "element.rstrip")
 def element_string_method(call: PandasCall, ctx: RuleContext) -> Value:
@@ -102,7 +115,7 @@ def element_string_method(call: PandasCall, ctx: RuleContext) -> Value:
     element = _element(call)
     method, _ = STRING_METHODS[call.name]
     args = [call.const("chars", 0)] if call.args else []
-    return derived_column(element, element.code.attr("str").method(method, *args), dtype="str")
+    return _value(element, element.code.attr("str").method(method, *args), dtype="str")
 
 
 @rule("element.startswith", "element.endswith")
@@ -116,18 +129,26 @@ def element_prefix(call: PandasCall, ctx: RuleContext) -> Value:
         code = emit.pl("any_horizontal", *parts)
     else:
         code = element.code.attr("str").method(method, prefix)
-    return derived_column(element, code, dtype="bool", null_is_false=True)
+    return _value(element, code, dtype="bool", null_is_false=True)
 
 
 @rule("element.replace")
 def element_replace(call: PandasCall, ctx: RuleContext) -> Value:
     """x.replace(a, b) in a lambda -> str.replace_all(a, b, literal=True)."""
     element = _element(call)
-    if len(call.args) != 2:
-        raise Unsupported("str.replace with a count")
+    if len(call.args) not in (2, 3):
+        raise Unsupported("str.replace needs the old and new text")
     old, new = call.const("old", 0), call.const("new", 1)
-    code = element.code.attr("str").method("replace_all", old, new, literal=True)
-    return derived_column(element, code, dtype="str")
+    count = call.const("count", 2, -1)
+    if not isinstance(count, int):
+        raise Unsupported("a computed replacement count")
+    if count < 0:
+        code = element.code.attr("str").method("replace_all", old, new, literal=True)
+    elif count == 0:
+        code = element.code
+    else:  # the first `count` occurrences, as Python does
+        code = element.code.attr("str").method("replace", old, new, literal=True, n=count)
+    return _value(element, code, dtype="str")
 
 
 @rule("element.len")
@@ -137,19 +158,34 @@ def element_len(call: PandasCall, ctx: RuleContext) -> Value:
     if element.dtype not in (None, "str"):
         raise Unsupported("len of a non-text value")
     code = element.code.attr("str").method("len_chars").method("cast", emit.atom("pl.Int64"))
-    return derived_column(element, code, dtype="int")
+    return _value(element, code, dtype="int")
 
 
 @rule("element.str", "element.int", "element.float")
 def element_cast(call: PandasCall, ctx: RuleContext) -> Value:
-    """str(x) / int(x) / float(x) in a lambda -> cast."""
+    """str(x) / int(x) / float(x) in a lambda -> cast.
+
+    Handles: str() of a boolean is True/False and of a missing value "nan", as Python writes
+    them.
+    Caveats: Python writes some floats differently (1e-05, Polars 0.00001) (0.85).
+    """
     element = _element(call)
-    target = {"str": "pl.String", "int": "pl.Int64", "float": "pl.Float64"}[call.name]
-    if call.name == "str" and element.dtype in (None, "bool", "float"):
-        ctx.lower("Python's str() of booleans and some floats differs from Polars' text", 0.85)
+    if call.name == "str":
+        if element.dtype == "bool":
+            code = emit.pl("when", element.code).method("then", emit.pl("lit", "True")).method(
+                "when", emit.unary("~", element.code)).method("then", emit.pl("lit", "False"))
+            return _value(element, code.method("otherwise", emit.pl("lit", "nan")), dtype="str")
+        if element.dtype in (None, "float"):
+            ctx.lower("Python's str() writes some floats (1e-05) and, without the column type, "
+                      "booleans (True) differently from Polars' text", 0.85)
+        code = element.code.method("cast", emit.atom("pl.String"))
+        if element.dtype != "int":  # a missing value reaches str() as NaN: "nan"
+            code = code.method("fill_null", "nan")
+        return _value(element, code, dtype="str")
+    target = {"int": "pl.Int64", "float": "pl.Float64"}[call.name]
     if call.name == "int":
         ctx.lower("int() of a missing value raises in pandas; Polars keeps it missing", 0.95)
-    return derived_column(element, element.code.method("cast", emit.atom(target)), dtype=call.name)
+    return _value(element, element.code.method("cast", emit.atom(target)), dtype=call.name)
 
 
 @rule("element.round", "element.abs")
@@ -157,14 +193,14 @@ def element_number(call: PandasCall, ctx: RuleContext) -> Value:
     """round(x, n) / abs(x) in a lambda -> .round(n) / .abs()."""
     element = _element(call)
     if call.name == "abs":
-        return derived_column(element, element.code.method("abs"), dtype=element.dtype)
+        return _value(element, element.code.method("abs"), dtype=element.dtype)
     digits = call.const("ndigits", 0, None)
     if digits is None:
         ctx.lower("round(x) without digits gives an int in Python, a float in Polars", 0.95)
-        return derived_column(element, element.code.method("round", 0), dtype="float")
+        return _value(element, element.code.method("round", 0), dtype="float")
     if not isinstance(digits, int) or digits < 0:
         raise Unsupported("negative digits")
-    return derived_column(element, element.code.method("round", digits), dtype=element.dtype)
+    return _value(element, element.code.method("round", digits), dtype=element.dtype)
 
 
 @rule("element.ifexp")
@@ -172,15 +208,32 @@ def element_ifexp(call: PandasCall, ctx: RuleContext) -> Value:
     """`a if cond else b` -> pl.when(cond).then(a).otherwise(b).
 
     Handles: a condition on a missing value is False in Python (NaN comparisons) and null in
-    Polars; both take the else branch.
+    Polars; both take the else branch. A plain value as the condition is Python's truth value
+    (nonzero, non-empty; NaN is true).
+    Caveats: a value of unknown type as the condition is a TODO.
     """
     cond = call.receiver
     assert isinstance(cond, Column)
     then, otherwise = call.args
-    code = emit.when(cond.code, _branch(then, cond, ctx), _branch(otherwise, cond, ctx))
+    code = emit.when(_truth(cond), _branch(then, cond, ctx), _branch(otherwise, cond, ctx))
     kinds = {_kind(v) for v in (then, otherwise)}
     return derived_column(cond, code, dtype=kinds.pop() if len(kinds) == 1 else None,
                           others=[v for v in (then, otherwise) if isinstance(v, Column)])
+
+
+def _truth(cond: Column) -> Code:
+    """Python's truth value of the condition. A comparison is null where pandas' is False,
+    and pl.when takes the otherwise branch there; a plain value is true when nonzero (or
+    non-empty), and a missing value reaches Python as NaN, which is true."""
+    if cond.dtype == "bool":
+        raw = cond.name is not None and cond.code.text == emit.col(cond.name).text
+        return cond.code.method("fill_null", True) if raw else cond.code
+    if cond.dtype in ("int", "float"):
+        return emit.binop(cond.code, "!=", 0).method("fill_null", True)
+    if cond.dtype == "str":
+        return emit.binop(cond.code, "!=", emit.pl("lit", "")).method("fill_null", True)
+    raise Unsupported("the truth value of a value of unknown type (write the test out, "
+                      "for example `x > 0`)")
 
 
 def _branch(value: Value, cond: Column, ctx: RuleContext) -> Code:

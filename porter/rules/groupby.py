@@ -26,6 +26,11 @@ def agg_expr(column: Code, how: str, dtype: str | None = None) -> Code:
         return column.method(how, ignore_nulls=True)
     if how == "sum" and dtype == "str":  # pandas concatenates text
         return column.attr("str").method("join", "")
+    if how == "builtin_sum":  # Python's sum meets NaN: the group's sum is NaN
+        return emit.when(emit.binop(column.method("null_count"), "==", 0), column.method("sum"))
+    if how in ("builtin_min", "builtin_max"):
+        # Python's min/max keep a NaN met first (nothing compares above it) and skip later ones
+        return emit.when(column.method("first").method("is_not_null"), column.method(how[8:]))
     if how in ("sum", "mean", "median", "min", "max", "std", "var"):
         return column.method(how)
     raise Unsupported(f"aggregation {how!r}")
@@ -37,7 +42,8 @@ def how_name(value: Value) -> str:
     if isinstance(value, Module):
         return value.qualname.rsplit(".", 1)[-1]
     if isinstance(value, Opaque) and value.code.text in ("sum", "min", "max", "len"):
-        return {"len": "size"}.get(value.code.text, value.code.text)
+        # pandas 3 calls a Python builtin on each group's values (NaN included)
+        return {"len": "size"}.get(value.code.text, f"builtin_{value.code.text}")
     raise Unsupported(f"aggregation {value.code.text} (a function porter cannot read)")
 
 
@@ -120,7 +126,9 @@ def target_columns(grouped: Grouped, ctx: RuleContext) -> list[str] | None:
 
 @rule(*(f"groupby.{how}" for how in AGGREGATIONS))
 def reduce(call: PandasCall, ctx: RuleContext) -> Value:
-    """g.sum() / mean / median / min / max / std / var / count / nunique / first / last / size.
+    """GroupBy.sum / mean / median / min / max / ... / size -> aggregations in LazyGroupBy.agg.
+
+    The reductions: sum, mean, median, min, max, std, var, count, nunique, first, last, size.
 
     Handles: missing values skipped by first/last/nunique/count; counts as Int64; keys sorted.
     """
@@ -133,8 +141,10 @@ def reduce(call: PandasCall, ctx: RuleContext) -> Value:
     if how == "size":
         expr = emit.pl("len").method("cast", emit.atom("pl.Int64"))
         if grouped.as_index:
-            return aggregate(grouped, [expr.method("alias", "size")], ["size"], ctx,
-                             series_name=None, is_series=True)
+            # g.size() is an unnamed Series; g["qty"].size() is named after the column
+            name = grouped.selection[0] if grouped.single and grouped.selection else None
+            return aggregate(grouped, [expr.method("alias", name or "size")], [name or "size"], ctx,
+                             series_name=name, is_series=True)
         return aggregate(grouped, [expr.method("alias", "size")], ["size"], ctx)
     ddof = call.const("ddof", None, 1)
     columns = target_columns(grouped, ctx)
@@ -158,10 +168,13 @@ def reduce(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("groupby.agg", "groupby.aggregate")
 def agg(call: PandasCall, ctx: RuleContext) -> Value:
-    """g.agg(total=("kg", "sum")), g.agg({"kg": "sum"}), g["kg"].agg(["sum", "mean"]), g.agg("sum").
+    """GroupBy.agg -> LazyGroupBy.agg: g.agg(total=("kg", "sum")), g.agg({"kg": "sum"}),
+    g["kg"].agg(["sum", "mean"]), g.agg("sum").
 
     Handles: output names as pandas makes them; a dict of lists gives MultiIndex columns in
-    pandas, flattened here to "kg_sum" (documented).
+    pandas, flattened here to "kg_sum" for every output (documented); g["kg"].agg(total="sum");
+    the Python builtins sum / min / max, which pandas 3 calls on each group's values (a
+    missing value makes sum NaN; one met first is min and max), and len (the group size).
     """
     grouped = grouped_of(call)
     exprs: list[Code] = []
@@ -176,7 +189,11 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
         names.append(name)
 
     if call.kwargs and not call.args:
+        selected = grouped.selection[0] if grouped.single and grouped.selection else None
         for name, spec in call.kwargs.items():
+            if selected is not None and not (isinstance(spec, Opaque) and isinstance(spec.const, tuple)):
+                add(selected, how_name(spec), name)  # g["kg"].agg(total="sum")
+                continue
             if not (isinstance(spec, Opaque) and isinstance(spec.const, tuple) and len(spec.const) == 2):
                 raise Unsupported("named aggregation needs (column, function) pairs")
             column, how = spec.const
@@ -187,14 +204,11 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
     spec_value = call.args[0]
     spec: Any = spec_value.const if isinstance(spec_value, Opaque) and spec_value.is_const else None
     if isinstance(spec, dict):
-        flattened = False
+        # any list makes every output a (column, function) pair in pandas: flatten them all
+        flattened = any(isinstance(hows, list) for hows in spec.values())
         for column, hows in spec.items():
-            if isinstance(hows, list):
-                flattened = True
-                for how in hows:
-                    add(column, how, f"{column}_{how}")
-            else:
-                add(column, hows, column)
+            for how in hows if isinstance(hows, list) else [hows]:
+                add(column, how, f"{column}_{how}" if flattened else column)
         if flattened:
             ctx.lower("pandas makes MultiIndex columns here; porter names them column_function", 0.9)
         return aggregate(grouped, exprs, names, ctx)
@@ -206,6 +220,15 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
             add(columns[0], str(how), str(how))
         return aggregate(grouped, exprs, names, ctx)
     how = how_name(spec_value)
+    if how.startswith("builtin_"):
+        columns = target_columns(grouped, ctx)
+        if columns is None:
+            raise Unsupported("a Python builtin over columns porter does not know")
+        for column in columns:
+            add(column, how, column)
+        single = grouped.single and len(columns) == 1
+        return aggregate(grouped, exprs, names, ctx, series_name=columns[0] if single else None,
+                         is_series=single)
     forward = PandasCall(grouped, how, (), {}, call.node)
     if how not in AGGREGATIONS:
         raise Unsupported(f"aggregation {how!r}")
@@ -296,8 +319,9 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
     """df.describe() -> count, mean, std, min, 25%, 50%, 75%, max of the numeric columns.
 
     Handles: percentiles interpolated linearly like pandas (Polars' default is "nearest");
-    booleans and text left out like pandas; the statistics as a "statistic" column (pandas'
-    index).
+    booleans and text left out like pandas; the statistics as a column named "index" (pandas
+    keeps them in an unnamed index, which reset_index() names "index").
+    Caveats: to_csv with the index writes the header "index" where pandas writes none.
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
@@ -314,13 +338,14 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
         ("75%", numeric.method("quantile", 0.75, "linear")),
         ("max", numeric.method("max").method("cast", as_float)),
     ]
-    parts = [frame.code.method("select", emit.pl("lit", name).method("alias", "statistic"), expr)
+    # pandas keeps the statistic names in an unnamed index, which reset_index() names "index"
+    parts = [frame.code.method("select", emit.pl("lit", name).method("alias", "index"), expr)
              for name, expr in stats]
     code = emit.Code("pl.concat([\n" + "".join(f"    {p.text},\n" for p in parts) + "])")
     if frame.columns is not None and len(frame.dtypes) == len(frame.columns) and not any(
             t in ("int", "float") for _, t in frame.dtypes):
         raise Unsupported("describe of a frame without numeric columns describes text in pandas")
     numeric_cols = tuple(c for c in frame.columns or () if frame.dtype(c) in ("int", "float")) or None
-    columns = ("statistic", *numeric_cols) if numeric_cols else None
-    return Frame(code, columns=columns, index=("statistic",), labels_intact=False)
+    columns = ("index", *numeric_cols) if numeric_cols else None
+    return Frame(code, columns=columns, index=("index",), labels_intact=False)
 

@@ -82,16 +82,48 @@ def fill_value(value: Value, frame: Frame, ctx: RuleContext) -> Code:
     raise Unsupported("a fill value computed by pandas")
 
 
+def _kind_of(value: object) -> str | None:
+    if isinstance(value, bool):
+        return "bool"
+    if isinstance(value, (int, float)):
+        return "number"
+    if isinstance(value, str):
+        return "str"
+    return None
+
+
+def _mixes_types(value: object, dtype: str | None) -> bool:
+    """Filling `value` into a column of `dtype` makes a mixed (object) column in pandas; Polars
+    would turn the whole column into text (or refuse)."""
+    kind = _kind_of(value)
+    if kind is None or dtype is None:
+        return False
+    if kind == "str":
+        return dtype != "str"
+    if kind == "number":
+        return dtype in ("str", "bool", "datetime", "date", "category")
+    return dtype not in ("bool",)
+
+
 @rule("series.fillna")
 def series_fillna(call: PandasCall, ctx: RuleContext) -> Value:
-    """s.fillna(v) -> .fill_null(v) (v may be a value, a column or a reduction)."""
+    """s.fillna(v) -> .fill_null(v) (v may be a value, a column or a reduction).
+
+    Caveats: a value of another type (text into numbers, numbers into text) makes a mixed
+    object column in pandas: a TODO when the column type is known, lowered confidence when not.
+    """
     column = call.receiver
     assert isinstance(column, Column)
     ctx.reject_unknown(call, "value", positional=1)
     value = call.arg("value", 0)
+    if isinstance(value, Opaque) and value.is_const:
+        if _mixes_types(value.const, column.dtype):
+            raise Unsupported(f"filling {value.const!r} into a {column.dtype} column makes a "
+                              "mixed column in pandas; Polars would turn every value into text")
+        if column.dtype is None and _kind_of(value.const) in ("str", "number"):
+            ctx.lower("the column type is not known: a fill value of another type makes a mixed "
+                      "column in pandas, text in Polars", 0.85)
     code = column.code.method("fill_null", fill_value(value, column.frame, ctx))
-    if isinstance(value, Opaque) and isinstance(value.const, str) and column.dtype not in (None, "str"):
-        ctx.lower("text filled into a non-text column makes an object column in pandas", 0.7)
     return derived_column(column, code, dtype=column.dtype, others=[value])
 
 
@@ -99,8 +131,13 @@ def series_fillna(call: PandasCall, ctx: RuleContext) -> Value:
 def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
     """df.fillna(v) -> .fill_null(v); df.fillna({"a": 0}) -> per-column fill_null.
 
-    Caveats: pandas also writes a number into text columns (making them object); Polars only
-    fills columns whose type can hold the value.
+    Handles: a plain value fills the columns whose type can hold it (Polars' fill_null with a
+    Python value); a computed value (a reduction) fills the numeric columns only, where Polars
+    would otherwise turn every other column into that type; names in a dict that are not
+    columns are ignored, as pandas ignores them.
+    Caveats: pandas also writes a number into text columns (and text into numbers), making them
+    object: lowered confidence when such columns exist or their types are unknown; a TODO for
+    a dict entry whose value does not fit its known column type.
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
@@ -108,16 +145,45 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
     value = call.arg("value", 0)
     if isinstance(value, Opaque) and isinstance(value.const, dict):
         from porter.rules.assign import with_columns
-        items = [(name, emit.col(name).method("fill_null", emit.as_expr(v)), frame.dtype(name))
-                 for name, v in value.const.items()]
+        items = []
+        for name, v in value.const.items():
+            if frame.columns is not None and name not in frame.columns:
+                continue  # pandas ignores names that are not columns
+            if _mixes_types(v, frame.dtype(name)):
+                raise Unsupported(f"filling {v!r} into the {frame.dtype(name)} column {name!r} "
+                                  "makes a mixed column in pandas")
+            items.append((name, emit.col(name).method("fill_null", emit.as_expr(v)), frame.dtype(name)))
+        if frame.columns is None:
+            ctx.lower("the columns are not known: a name that is not a column is ignored by "
+                      "pandas and an error in Polars", 0.9)
         return with_columns(frame, items)
-    code = frame.code.method("fill_null", fill_value(value, frame, ctx))
-    kinds = {t for _, t in frame.dtypes}
     complete = frame.columns is not None and len(frame.dtypes) == len(frame.columns)
-    is_text = isinstance(value, Opaque) and isinstance(value.const, str)
-    if not complete or (is_text and kinds - {"str"}) or (not is_text and "str" in kinds):
+    if isinstance(value, Opaque) and value.is_const and not isinstance(value.const, (dict, list)):
+        # A Python value (not pl.lit): Polars fills only the columns whose type can hold it.
+        code = frame.code.method("fill_null", value.const)
+        others = [c for c, t in frame.dtypes if _mixes_types(value.const, t)]
+    else:
+        code = frame.code.method("with_columns", emit.atom("pl.selectors.numeric()").method(
+            "fill_null", fill_value(value, frame, ctx)))
+        others = [c for c, t in frame.dtypes if t not in ("int", "float")]
+    if others:
+        ctx.lower(f"pandas also fills {', '.join(others)} (making object columns); Polars leaves "
+                  "them missing", 0.7)
+    elif not complete:
         ctx.lower("pandas also fills columns of another type (making them object); Polars "
                   "fills only the columns whose type can hold the value", 0.85)
+    return derive(frame, code, same_rows=True)
+
+
+@rule("frame.ffill", "frame.bfill")
+def frame_fill_direction(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.ffill() / df.bfill() -> .with_columns(pl.all().forward_fill()) / backward_fill()."""
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "limit")
+    method = "forward_fill" if call.name == "ffill" else "backward_fill"
+    limit = call.const("limit", None, None)
+    code = frame.code.method("with_columns", emit.pl("all").method(method, *([limit] if limit is not None else [])))
     return derive(frame, code, same_rows=True)
 
 

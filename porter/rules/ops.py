@@ -7,6 +7,9 @@ value is always null on the Polars side; these rules rely on that.
 
 from __future__ import annotations
 
+from dataclasses import replace
+import math
+
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
@@ -21,6 +24,14 @@ def base_column(*values: Value) -> Column:
         if isinstance(value, Column):
             return value
     raise Unsupported("no column among the operands")
+
+
+def operand(value: Value, frame: Frame, ctx: RuleContext, *, as_bool: bool = False) -> Code:
+    """A value on one side of an operator: Polars operators read a Python string as a literal,
+    so plain literals are written as they are."""
+    if isinstance(value, Opaque) and value.is_const and not isinstance(value.const, (list, dict, tuple)):
+        return value.code if value.code.text.isidentifier() else emit.lit(value.const)
+    return ctx.bool_expr(value, frame) if as_bool else ctx.expr(value, frame)
 
 
 def _is_nonzero_constant(value: Value) -> bool:
@@ -38,18 +49,21 @@ def _dtype(value: Value) -> str | None:
 
 @rule("series.arith")
 def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
-    """a + b, a - b, a * b, a / b, a // b, a % b, a ** b on columns and scalars.
+    """Series arithmetic -> Expr operators: a + b, a - b, a * b, a / b, a // b, a % b, a ** b.
 
     Handles: 0/0 gives NaN in both, which porter turns into a missing value (fill_nan(None));
     integer // and % by zero give inf/NaN in pandas and null in Polars, so // is written as a
-    floored true division and % is guarded; bool + bool is a logical or in pandas.
+    floored true division and % is guarded; bool + bool is a logical or in pandas; inf * 0
+    and inf - inf (an operand from a division or a power) are made missing too.
+    Caveats: NaN made from inf values already in the data is not made missing.
     """
     left, right = call.receiver, call.args[0]
     assert left is not None
     column = base_column(left, right)
     frame = column.frame
     op = call.name
-    lcode, rcode = ctx.bool_expr(left, frame), ctx.bool_expr(right, frame)
+    lcode = operand(left, frame, ctx, as_bool=True)
+    rcode = operand(right, frame, ctx, as_bool=True)
     ltype, rtype = _dtype(left), _dtype(right)
     dtype: str | None = None
     if op == "+" and ltype == rtype == "bool":
@@ -69,10 +83,14 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
             ctx.lower("floor division is computed as floored true division (float result)", 0.95)
     elif op == "%":
         code = emit.binop(lcode, "%", rcode)
-        if not _is_nonzero_constant(right):
+        if isinstance(right, Opaque) and right.const == 0:
+            code = emit.pl("lit", None, dtype=emit.atom("pl.Float64"))  # every value is NaN
+        elif not _is_nonzero_constant(right):
             code = emit.when(emit.binop(rcode, "!=", 0), code)
     elif op in ("+", "-", "*", "**"):
         code = emit.binop(lcode, op, rcode)
+        if op != "**" and _nan_possible(op, left, right):
+            code = code.method("fill_nan", None)  # inf * 0, inf - inf: NaN, missing in pandas
         if ltype in NUMERIC and rtype in NUMERIC:
             dtype = "float" if "float" in (ltype, rtype) else "int"
         elif op == "+" and "str" in (ltype, rtype):
@@ -84,7 +102,29 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported(f"operator {op} on columns")
     if _is_str_literal(left) and op == "+":
         code = emit.binop(emit.pl("lit", left.const), "+", rcode)  # type: ignore[union-attr]
-    return derived_column(column, code, dtype=dtype, others=[left, right], name=_result_name(left, right))
+    result = derived_column(column, code, dtype=dtype, others=[left, right], name=_result_name(left, right))
+    # inside a lambda, arithmetic on the parameter is still one value: `(s + "!").upper()`
+    return replace(result, element=True) if column.element else result
+
+
+def _may_be_infinite(value: Value) -> bool:
+    """A division or a power can make ±inf (x / 0); so can an inf literal."""
+    if isinstance(value, Opaque) and isinstance(value.const, float):
+        return math.isinf(value.const)
+    return isinstance(value, Column) and (" / " in value.code.text or " ** " in value.code.text)
+
+
+def _nan_possible(op: str, left: Value, right: Value) -> bool:
+    """inf * 0 and inf - inf (inf + -inf) are NaN; a finite constant operand cannot make one."""
+    for inf_side, other in ((left, right), (right, left)):
+        if not _may_be_infinite(inf_side):
+            continue
+        if isinstance(other, Opaque) and isinstance(other.const, (int, float)):
+            if op == "*" and other.const == 0 or math.isinf(other.const):
+                return True
+            continue
+        return True
+    return False
 
 
 def _is_str_literal(value: Value) -> bool:
@@ -99,7 +139,7 @@ def _result_name(left: Value, right: Value) -> str | None:
 
 @rule("series.compare")
 def compare(call: PandasCall, ctx: RuleContext) -> Value:
-    """a == b, a != b, a < b, ... on columns and scalars.
+    """a == b, a != b, a < b, ... on columns and scalars -> Expr comparisons.
 
     Handles: a comparison with a missing value is False in pandas (True for !=) and null in
     Polars; != is filled with True right away, the others are filled with False where the
@@ -109,10 +149,10 @@ def compare(call: PandasCall, ctx: RuleContext) -> Value:
     assert left is not None
     column = base_column(left, right)
     frame = column.frame
-    lcode, rcode = ctx.expr(left, frame), ctx.expr(right, frame)
+    lcode, rcode = operand(left, frame, ctx), operand(right, frame, ctx)
     if call.name == "!=":
         if isinstance(right, Opaque) and right.is_const and right.const is not None:
-            code = lcode.method("ne_missing", rcode)
+            code = lcode.method("ne_missing", ctx.expr(right, frame))
         else:
             code = emit.binop(lcode, "!=", rcode).method("fill_null", True)
         return derived_column(column, code, dtype="bool", others=[left, right])
@@ -130,7 +170,7 @@ def _date_like(value: Value) -> bool:
 
 @rule("series.logical")
 def logical(call: PandasCall, ctx: RuleContext) -> Value:
-    """mask & mask, mask | mask, mask ^ mask.
+    """mask & mask, mask | mask, mask ^ mask -> Expr & | ^.
 
     Handles: Kleene logic with null standing for pandas' False gives the same rows for & and |;
     ^ fills first.
@@ -149,7 +189,7 @@ def logical(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("series.unary")
 def unary(call: PandasCall, ctx: RuleContext) -> Value:
-    """~mask, -s.
+    """~mask, -s -> ~expr, -expr.
 
     Handles: ~ of a comparison that met a missing value is True in pandas: filled with False
     before negating.

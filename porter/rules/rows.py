@@ -130,7 +130,7 @@ def series_nlargest(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("frame.reset_index")
 def reset_index(call: PandasCall, ctx: RuleContext) -> Value:
-    """df.reset_index() / reset_index(drop=True).
+    """df.reset_index() / reset_index(drop=True) -> nothing, or with_row_index("index").
 
     Handles: after a groupby the keys are already columns in Polars; drop=True makes fresh
     labels, which is nothing to do in Polars.
@@ -166,8 +166,9 @@ def series_reset_index(call: PandasCall, ctx: RuleContext) -> Value:
     from porter.translate.handover import series_frame
     name = call.const("name", None, None)
     if call.const("drop", None, False):
+        # the index (a groupby's keys) is dropped: the Series is its values alone
         return Column(column.code, frame=derive(column.frame, column.frame.code, same_rows=True,
-                                                 labels_intact=True), name=column.name,
+                                                 labels_intact=True, index=()), name=column.name,
                       dtype=column.dtype, refs=column.refs, versions=column.versions)
     if not column.frame.index:
         raise Unsupported("the row labels of a Series become a column")
@@ -185,22 +186,37 @@ def isin(call: PandasCall, ctx: RuleContext) -> Value:
     """s.isin([...]) -> .is_in([...]).
 
     Handles: a missing value is not in the list (False in pandas, null in Polars, filled where
-    it matters); a missing value in the list matches missing values (nulls_equal=True).
+    it matters); NaN in the list matches missing values (nulls_equal=True), None only in a
+    text column (a missing number is NaN, not None); a list in a variable may hold either.
     """
     column = call.receiver
     assert isinstance(column, Column)
     values = call.arg("values", 0)
     if isinstance(values, Opaque) and isinstance(values.const, (list, tuple, set)):
         items = list(values.const)
-        has_missing = any(v is None or v != v for v in items)
+        has_missing = _matches_missing(items, column.dtype, ctx)
         kwargs = {"nulls_equal": True} if has_missing else {}
         code = column.code.method("is_in", [v for v in items], **kwargs)
         return derived_column(column, code, dtype="bool", null_is_false=not has_missing)
     if isinstance(values, Opaque) and not values.is_const:
+        # the list may hold None or NaN, which pandas matches against missing values
         ctx.lower(f"`{values.code.text}` is taken to be a list of values", 0.85)
-        return derived_column(column, column.code.method("is_in", values.code), dtype="bool",
-                              null_is_false=True)
+        code = column.code.method("is_in", values.code, nulls_equal=True)
+        return derived_column(column, code, dtype="bool")
     raise Unsupported("isin with a Series or a frame")
+
+
+def _matches_missing(items: list[Any], dtype: str | None, ctx: RuleContext) -> bool:
+    """Whether pandas' isin matches a missing value: NaN in the list matches it in every
+    column; None only in a text column (a missing number is NaN, which is not None)."""
+    if any(isinstance(v, float) and v != v for v in items):
+        return True
+    if not any(v is None for v in items):
+        return False
+    if dtype is None:
+        ctx.lower("None in the list matches missing text but not a missing number in pandas; "
+                  "the column type is not known, so it is taken to be text", 0.8)
+    return dtype in (None, "str", "category")
 
 
 @rule("series.between")
@@ -258,7 +274,16 @@ def series_replace(call: PandasCall, ctx: RuleContext) -> Value:
     old, new = _types(args)
     if old and new and not (old | new) <= {int, float} and old != new:
         raise Unsupported("replacing values with values of another type changes the column type")
-    return derived_column(column, _replacement(column.code, args), dtype=column.dtype)
+    code, dtype = column.code, column.dtype
+    if _fractional_replacement(args) and dtype != "float":
+        # pandas makes an integer column float to hold 2.5; Polars would truncate it to 2
+        code, dtype = code.method("cast", emit.atom("pl.Float64")), "float"
+    return derived_column(column, _replacement(code, args), dtype=dtype)
+
+
+def _fractional_replacement(args: tuple[object, object] | dict[Any, Any]) -> bool:
+    values = args.values() if isinstance(args, dict) else [args[1]]
+    return any(isinstance(v, float) and v == v and not v.is_integer() for v in values)
 
 
 @rule("frame.replace")
@@ -275,6 +300,10 @@ def frame_replace(call: PandasCall, ctx: RuleContext) -> Value:
     old, new = _types(args)
     if not old or len(old) > 1 or (new and not (old | new) <= {int, float} and old != new):
         raise Unsupported("replacing values of mixed types across a frame")
-    selector = "pl.selectors.string()" if old == {str} else "pl.selectors.numeric()"
-    code = frame.code.method("with_columns", _replacement(emit.atom(selector), args))
+    selector = emit.atom("pl.selectors.string()" if old == {str} else "pl.selectors.numeric()")
+    if old != {str} and _fractional_replacement(args):
+        # pandas makes an integer column holding the value float; Polars would truncate
+        selector = selector.method("cast", emit.atom("pl.Float64"))
+        ctx.lower("every numeric column becomes float, not only those holding the value", 0.9)
+    code = frame.code.method("with_columns", _replacement(selector, args))
     return derive(frame, code, same_rows=True)

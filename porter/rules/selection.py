@@ -309,11 +309,16 @@ class _QueryBuilder:
             right_node = target.comparator
             if op in ("in", "not in"):
                 values = self.operand(right_node)
-                code = left.method("is_in", values)
-                if op == "not in":
-                    code = emit.unary("~", code.method("fill_null", False))
+                if _may_hold_none(right_node):
+                    # pandas matches a missing value against None in the list
+                    code = left.method("is_in", values, nulls_equal=True)
+                    code = emit.unary("~", code) if op == "not in" else code
                 else:
-                    nullable = True
+                    code = left.method("is_in", values)
+                    if op == "not in":
+                        code = emit.unary("~", code.method("fill_null", False))
+                    else:
+                        nullable = True
             elif op == "!=":
                 code = emit.binop(left, "!=", self.operand(right_node)).method("fill_null", True)
             else:
@@ -349,3 +354,10 @@ class _QueryBuilder:
             return emit.unary("-", self.operand(node.expression))
         raise Unsupported("a query operand porter does not port")
 
+
+
+def _may_hold_none(node: cst.BaseExpression) -> bool:
+    """A list operand of `in` that is a variable (contents unknown) or lists None."""
+    if isinstance(node, (cst.List, cst.Tuple)):
+        return any(isinstance(e.value, cst.Name) and e.value.value == "None" for e in node.elements)
+    return True

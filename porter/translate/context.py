@@ -214,6 +214,7 @@ def derived_column(base: Column, code: Code, *, dtype: str | None = None,
         null_is_false=null_is_false,
         refs=frozenset(refs),
         versions=tuple(versions.items()),
+        element=base.element,
     )
 
 

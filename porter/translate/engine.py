@@ -40,7 +40,9 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
 
     def position(node: cst.CSTNode) -> tuple[int, int]:
         pos = positions.get(node)
-        return (pos.start.line, pos.end.line) if pos is not None else (0, 0)
+        if pos is None:  # a node porter made (a call without inplace=True): its statement's lines
+            return services.statement_lines
+        return (pos.start.line, pos.end.line)
 
     def inside_from_pandas(node: cst.CSTNode) -> bool:
         parent = parents.get(node)
@@ -157,6 +159,7 @@ class _Walker:
         self.function: str | None = None
         self.header_sites: list[SiteDraft] = []  # sites in the header of the compound statement at hand
         self.statement_key = 0  # the simple statement being rewritten
+        self.current_small: cst.CSTNode = cst.Pass()
         self.loop_depth = 0
 
     # blocks ---------------------------------------------------------------------------------
@@ -305,6 +308,7 @@ class _Walker:
         sites: list[SiteDraft] = []
         before = dict(env)
         self.statement_key = id(line)
+        self.services.statement_lines = self.services.position(line)
         for small in line.body:
             text, new_sites = self.small(small, env, indent)
             texts.append(text)
@@ -320,12 +324,12 @@ class _Walker:
         parts = [t if t is not None else self.services.code_for(s).strip()
                  for t, s in zip(texts, line.body)]
         new_lines = []
-        for i, part in enumerate(parts):
-            parsed = cst.parse_statement(part + "\n")
+        statements = [stmt for part in parts for stmt in cst.parse_module(part + "\n").body]
+        for i, parsed in enumerate(statements):
             assert isinstance(parsed, cst.SimpleStatementLine)
             if i == 0:
                 parsed = parsed.with_changes(leading_lines=[*line.leading_lines, *todo_lines])
-            if i == len(parts) - 1:
+            if i == len(statements) - 1:
                 parsed = parsed.with_changes(trailing_whitespace=line.trailing_whitespace)
             new_lines.append(parsed)
         return new_lines
@@ -353,6 +357,7 @@ class _Walker:
     def small(self, stmt: cst.BaseSmallStatement, env: dict[str, Value], indent: str) -> tuple[str | None, list[SiteDraft]]:
         """Rewrite one small statement; None when it stays as written."""
         evaluator = Evaluator(env, self.services)
+        self.current_small = stmt
         if isinstance(stmt, cst.Expr):
             inplace = self.inplace_call(stmt.value, env, evaluator, indent)
             if inplace is not None:
@@ -405,7 +410,13 @@ class _Walker:
         if isinstance(receiver_node, cst.Name) and isinstance(value, (Frame, PandasValue)):
             return self.bind(receiver_node.value, value, env, indent)
         if isinstance(receiver_node, cst.Subscript) and isinstance(value, Column):
-            return self.set_item(receiver_node, value, env, evaluator, indent)
+            # pandas 3 (copy-on-write): the method changes a copy of the column, never the frame
+            line, end_line = self.services.position(expr)
+            site = SiteDraft("series.inplace", "inplace", "todo", 0.0,
+                             "chained assignment with inplace=True changes nothing in pandas 3 "
+                             "(copy-on-write); if the column was meant to change, assign the "
+                             "result to it", line, end_line)
+            return emit.layout_chain(value.code, indent, ""), [*value.sites, site]
         return None
 
     def assign(self, stmt: cst.Assign | cst.AnnAssign, env: dict[str, Value], evaluator: Evaluator,
@@ -469,7 +480,7 @@ class _Walker:
                          else evaluator.eval_slice(e.slice) for e in target.slice)
             call = PandasCall(frame, f"{owner.attr.value}_setitem", (*keys, value), node=target)
             result = evaluator.dispatch(f"frame.{owner.attr.value}_setitem", call, target)
-            return self.bind(owner.value.value, result, env, indent)
+            return self.bind_changed(owner.value.value, frame, result, env, indent)
         if not isinstance(owner, cst.Name):
             return None
         frame = evaluator.eval(owner)
@@ -478,7 +489,18 @@ class _Walker:
         key = evaluator.eval(_index_of(target))
         call = PandasCall(frame, "setitem", (key, value), node=target)
         result = evaluator.dispatch("frame.setitem", call, target)
-        return self.bind(owner.value, result, env, indent)
+        return self.bind_changed(owner.value, frame, result, env, indent)
+
+    def bind_changed(self, name: str, frame: Frame, result: Value, env: dict[str, Value],
+                     indent: str) -> tuple[str | None, list[SiteDraft]]:
+        """A frame changed by a statement: rebound to the rewrite, or, when the change stays on
+        pandas, the frame is handed over first and the statement kept as written."""
+        if not isinstance(result, PandasValue):
+            return self.bind(name, result, env, indent)
+        from porter.translate.handover import to_pandas
+        env[name] = PandasValue(emit.atom(name))
+        original = self.services.code_for(self.current_small).strip()
+        return f"{name} = {to_pandas(frame).text}\n{original}", list(result.sites)
 
     def set_attr(self, target: cst.Attribute, value_node: cst.BaseExpression, env: dict[str, Value],
                  evaluator: Evaluator, indent: str) -> tuple[str | None, list[SiteDraft]] | None:
@@ -490,20 +512,48 @@ class _Walker:
         value = evaluator.eval(value_node)
         call = PandasCall(frame, target.attr.value, (value,), node=target)
         result = evaluator.dispatch(f"frame.set_{target.attr.value}", call, target)
-        return self.bind(target.value.value, result, env, indent)
+        return self.bind_changed(target.value.value, frame, result, env, indent)
+
+    def note_stale_series(self, name: str, frame: Frame, env: dict[str, Value]) -> None:
+        """`name` is about to hold other rows: a Series kept as an expression of it would then
+        read the new rows. The next pass keeps such a Series as a frame of its own."""
+        for value in env.values():
+            if isinstance(value, Column) and value.binding is not None \
+                    and value.frame.code.text == name and value.frame.rows != frame.rows:
+                self.services.stale_series.add(value.binding)
+
+    def series_of_its_own(self, name: str, value: Column) -> tuple[Code, Column]:
+        """`s = df.select(...)`: the Series keeps its values when `df` is filtered later; it is
+        still an expression of `df` while `df` keeps the same rows and columns."""
+        from porter.translate.handover import series_frame
+        column = value.name if value.name is not None else "0"
+        plain = value.code.text == emit.col(column).text
+        version = value.frame.version(column) if plain else fresh_token()
+        frame = Frame(emit.atom(name), rows=value.frame.rows, columns=(column,),
+                      versions=((column, version),), labels_intact=value.frame.labels_intact,
+                      dtypes=((column, value.dtype),) if value.dtype else ())
+        kept = Column(emit.col(column), frame=frame, name=value.name, dtype=value.dtype,
+                      refs=frozenset({column}), versions=((column, version),),
+                      binding=self.statement_key)
+        return series_frame(value), kept
 
     def bind(self, name: str, value: Value, env: dict[str, Value], indent: str) -> tuple[str | None, list[SiteDraft]]:
         """`name = value`: remember what the name now holds and write the assignment."""
         code = value.code
         if isinstance(value, Frame):
+            self.note_stale_series(name, value, env)
             env[name] = replace(value, code=emit.atom(name), sites=(), binding=self.statement_key)
             if self.emit_code and self.computed_once() and not _is_collected(code):
                 code = code.method("collect").method("lazy")
         elif isinstance(value, Column):
             frame_name = value.frame.code.text
-            if frame_name in env and isinstance(env[frame_name], Frame) \
-                    and env[frame_name].rows == value.frame.rows:  # type: ignore[union-attr]
-                env[name] = replace(value, code=emit.atom(name), sites=())
+            same_frame = frame_name in env and isinstance(env[frame_name], Frame) \
+                and env[frame_name].rows == value.frame.rows  # type: ignore[union-attr]
+            if same_frame and self.statement_key in self.services.stale_series:
+                code, env[name] = self.series_of_its_own(name, value)
+            elif same_frame:
+                # an expression of its frame, kept in a name: pl.col("kg") * 2
+                env[name] = replace(value, code=emit.atom(name), sites=(), binding=self.statement_key)
                 if value.null_is_false:
                     code = value.code.method("fill_null", False)
                     env[name] = replace(env[name], null_is_false=False)  # type: ignore[arg-type]

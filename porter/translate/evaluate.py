@@ -79,6 +79,9 @@ class Services:
     datetimes_possible: bool = True
     # statements that compute each named frame's data, by the assignment that named it
     consumers: dict[int, set[tuple[int, int]]] = field(default_factory=dict)
+    # Series kept in a name whose frame's name later holds other rows: kept as a frame of its own
+    stale_series: set[int] = field(default_factory=set)
+    statement_lines: tuple[int, int] = (0, 0)  # lines of the statement being rewritten
 
 
 class Evaluator:
@@ -223,7 +226,7 @@ class Evaluator:
             name = node.func.value
             if name in self.services.functions:
                 return self.call_local(self.services.functions[name], node)
-            if name in DISPLAY_FUNCTIONS or name in _BUILTIN_RULES:
+            if name in DISPLAY_FUNCTIONS or name in _BUILTIN_RULES or name in _ELEMENT_BUILTINS:
                 return self.call_builtin(name, node)
         lookup = self.dict_get(node)
         if lookup is not None:
@@ -396,6 +399,15 @@ class Evaluator:
             return self.generic(node)
         return self.dispatch("series.compare", PandasCall(left, op, (right,), node=node), node)
 
+    def _eval_BooleanOperation(self, node: cst.BooleanOperation) -> Value:
+        """`a and b` / `a or b` inside a lambda, on booleans: & and |."""
+        left, right = self.eval(node.left), self.eval(node.right)
+        if not any(isinstance(v, Column) and v.element for v in (left, right)) or not all(
+                isinstance(v, Column) and v.dtype == "bool" for v in (left, right)):
+            return self.generic(node)
+        op = "&" if isinstance(node.operator, cst.And) else "|"
+        return self.dispatch("series.logical", PandasCall(left, op, (right,), node=node), node)
+
     def _eval_UnaryOperation(self, node: cst.UnaryOperation) -> Value:
         operand = self.eval(node.expression)
         if isinstance(node.operator, cst.Minus) and isinstance(operand, Opaque) and operand.is_const:
@@ -405,7 +417,9 @@ class Evaluator:
             return self.generic(node)
         op = {cst.BitInvert: "~", cst.Minus: "-", cst.Plus: "+", cst.Not: "not"}[type(node.operator)]
         if op == "not":
-            return self.generic(node)
+            if not (isinstance(operand, Column) and operand.element and operand.dtype == "bool"):
+                return self.generic(node)
+            op = "~"  # `not` of one boolean value inside a lambda
         return self.dispatch("series.unary", PandasCall(operand, op, node=node), node)
 
     # -- rules ----------------------------------------------------------------------------------
@@ -585,6 +599,7 @@ class _ChildRewriter(cst.CSTTransformer):
 
 # -- helpers ------------------------------------------------------------------------------------
 
+_ELEMENT_BUILTINS = {"len", "str", "int", "float", "round", "abs"}
 _TYPE_NAMES: dict[str, type] = {"str": str, "int": int, "float": float, "bool": bool}
 _FRAME_PROPERTIES = {"columns", "shape", "dtypes", "empty", "index", "values", "T", "size",
                      "ndim", "axes", "at", "iat", "attrs", "flags", "style", "plot"}

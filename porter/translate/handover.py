@@ -110,8 +110,7 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
         return Code(f"{to_pandas(call.receiver).wrapped(emit.ATOM)}.{node.attr.value}")
     if isinstance(node, cst.Subscript) and call.receiver is not None:
         receiver = call.receiver
-        inner = source(node.slice[0]) if len(node.slice) == 1 else ", ".join(
-            source(s) for s in node.slice)
+        inner = ", ".join(source(element.slice) for element in node.slice)
         if len(node.slice) == 1 and call.args and not isinstance(call.args[0], Opaque):
             inner = to_pandas(call.args[0]).text
         base = to_pandas(receiver).wrapped(emit.ATOM)

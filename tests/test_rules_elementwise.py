@@ -1,0 +1,184 @@
+"""Rule cases and differential checks for porter/rules/elementwise.py (map with a dict, map and
+apply with a lambda: arithmetic, comparisons, `a if c else b`, string methods, dict lookups,
+len, str/round/abs).
+
+pandas is the reference implementation: every differential check runs the snippet with pandas
+and its conversion with Polars and compares what they computed. A lambda that raises in pandas
+on a missing value (NaN has no .upper()) is checked on text without missing values, or with
+na_action="ignore".
+"""
+
+from __future__ import annotations
+
+import pytest
+
+from rule_checks import check_ports, check_todo, check_unchanged
+from support import convert, differential
+
+# NaN and None together, zero, negatives, duplicates, unicode text; t has no missing values.
+FRAME = """\
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({
+    "k": ["a", "b", None, "c", np.nan, "Éclair", "a"],
+    "v": [1.0, 2.5, np.nan, -3.0, None, 0.0, 10.0],
+    "n": [1, 2, 3, 4, 5, 6, 7],
+    "t": [" x ", "Yy", "ab", "ünï", "ab", "éclair", "a-b"],
+    "s": ["x", None, "ab", "ünï", np.nan, "Éclair", "a-b"],
+    "p": [True, False, True, True, False, False, True],
+})
+codes = {"a": "Apple", "b": "Banana"}
+"""
+
+# -- ports ----------------------------------------------------------------------------------
+
+PORTS = [
+    pytest.param('r = df["k"].map({"a": "A", "b": "B"})', 'pl.col("k").replace_strict({"a": "A", "b": "B"}, default=None)',
+                 id="map dict: unmatched become missing"),
+    pytest.param('r = df["k"].map(codes)', 'replace_strict(codes, default=None)',
+                 id="map dict held in a variable"),
+    pytest.param('r = df["v"].map(lambda x: x * 2 + 1)', 'r = pl.col("v") * 2 + 1', id="lambda arithmetic"),
+    pytest.param('r = df["v"].map(lambda x: "big" if x > 1 else "small")',
+                 'pl.when(pl.col("v") > 1).then(pl.lit("big")).otherwise(pl.lit("small"))', id="if else"),
+    pytest.param('r = df["v"].map(lambda x: "yes" if x else "no")',
+                 'pl.when((pl.col("v") != 0).fill_null(True))', id="truth value of a number (NaN is true)"),
+    pytest.param('r = df["t"].map(lambda s: s.strip().upper())', 'pl.col("t").str.strip_chars().str.to_uppercase()',
+                 id="string methods chain"),
+    pytest.param('r = df["t"].map(lambda s: (s + "!").upper())', '(pl.col("t") + "!").str.to_uppercase()',
+                 id="method on a concatenation"),
+    pytest.param('r = df["t"].map(lambda s: s.replace("a", "A", 1))', 'str.replace("a", "A", literal=True, n=1)',
+                 id="replace with a count"),
+    pytest.param('r = df["t"].map(lambda s: len(s))', 'pl.col("t").str.len_chars().cast(pl.Int64)', id="len"),
+    pytest.param('r = df["k"].map(lambda x: codes.get(x, "other"))', 'replace_strict(codes, default=pl.lit("other"))',
+                 id="dict get with a default"),
+    pytest.param('r = df["v"].map(lambda x: str(x))', 'pl.col("v").cast(pl.String).fill_null("nan")',
+                 id="str of a missing value is nan"),
+    pytest.param('r = df["p"].map(lambda x: str(x))', 'then(pl.lit("True"))', id="str of a boolean"),
+    pytest.param('r = df["s"].map(lambda s: s.upper(), na_action="ignore")',
+                 'pl.when(pl.col("s").is_not_null()).then(pl.col("s").str.to_uppercase())',
+                 id="na_action ignore keeps missing"),
+]
+
+
+@pytest.mark.parametrize("before, expected", PORTS)
+def test_ports(before: str, expected: str) -> None:
+    check_ports(FRAME + before + "\n", expected)
+
+
+TODOS = [
+    pytest.param('def double(x):\n    return x * 2\nr = df["v"].map(double)', "series.map", id="named function"),
+    pytest.param('r = df["v"].apply(np.sqrt)', "series.apply", id="numpy function"),
+    pytest.param('r = df["k"].apply({"a": 1}.get)', "series.apply", id="bound method"),
+    pytest.param('r = df["k"].map(lambda x: codes[x] if x in codes else "?")', "series.map",
+                 id="membership test in a lambda"),
+    pytest.param('r = df["v"].apply(lambda x, y: x + y, args=(1,))', "series.apply", id="extra arguments"),
+    pytest.param('rows = [{"a": 1}]\nd2 = pd.DataFrame(rows)\nr = d2["a"].map(lambda x: "y" if x else "n")',
+                 "series.map", id="truth value of an unknown type"),
+]
+
+
+@pytest.mark.parametrize("before, key", TODOS)
+def test_todo(before: str, key: str) -> None:
+    check_todo(FRAME + before + "\n", key)
+
+
+UNCHANGED = [
+    pytest.param("xs = list(map(lambda x: x * 2, [1, 2]))\n", id="builtin map"),
+    pytest.param("d = {'a': 1}\nv = d.get('a', 0)\nw = d['a']\n", id="dict get and index"),
+    pytest.param("names = ['a', 'b']\nupper = [n.upper().strip() for n in names]\n", id="string methods on a list"),
+    pytest.param("import concurrent.futures as cf\nwith cf.ThreadPoolExecutor() as ex:\n"
+                 "    out = list(ex.map(abs, [-1, 2]))\n", id="executor map"),
+]
+
+
+@pytest.mark.parametrize("before", UNCHANGED)
+def test_unchanged(before: str) -> None:
+    check_unchanged("import pandas as pd\n" + before)
+
+
+# -- differential ---------------------------------------------------------------------------
+
+COLUMNS = [
+    pytest.param('df["k"].map({"a": "A", "b": "B"})', id="map dict unmatched and missing"),
+    pytest.param('df["k"].map(codes)', id="map dict variable"),
+    pytest.param('df["n"].map({1: 10, 2: 20})', id="map ints unmatched become missing"),
+    pytest.param('df["v"].map({1.0: "one"})', id="map float keys to text"),
+    pytest.param('df["v"].map({1: "one", 0: "zero"})', id="map int keys on floats"),
+    pytest.param('df["k"].map({"a": 1, None: 0})', id="map None key matches missing"),
+    pytest.param('df["p"].map({True: "yes", False: "no"})', id="map booleans"),
+    pytest.param('df["n"].map({1: np.nan, 2: 5})', id="map to NaN"),
+    pytest.param('df["v"].map(lambda x: x * 2 + 1)', id="lambda arithmetic with NaN"),
+    pytest.param('df["v"].apply(lambda x: x * 2)', id="apply lambda"),
+    pytest.param('df["n"].map(lambda x: x / 2)', id="lambda true division"),
+    pytest.param('df["v"].map(lambda x: x ** 2)', id="lambda power"),
+    pytest.param('df["v"].map(lambda x: -x)', id="lambda negation"),
+    pytest.param('df["v"].map(lambda x: x > 1)', id="lambda comparison with NaN"),
+    pytest.param('df["v"].map(lambda x: x != 1)', id="lambda != with NaN"),
+    pytest.param('df["n"].apply(lambda x: x % 3 == 0)', id="lambda modulo comparison"),
+    pytest.param('df["v"].map(lambda x: "big" if x > 1 else "small")', id="if else on NaN"),
+    pytest.param('df["v"].apply(lambda x: x if x > 0 else 0)', id="if else keeps value"),
+    pytest.param('df["n"].apply(lambda x: x * 2 if x % 2 == 0 else x)', id="if else arithmetic"),
+    pytest.param('df["v"].map(lambda x: 1 if x == x else 0)', id="NaN differs from itself"),
+    pytest.param('df["v"].map(lambda x: "yes" if x else "no")', id="truth value of floats with zero and NaN"),
+    pytest.param('df["p"].map(lambda x: "yes" if x else "no")', id="truth value of booleans"),
+    pytest.param('df["t"].map(lambda s: "e" if s else "-")', id="truth value of text"),
+    pytest.param('df["t"].map(lambda s: s.upper())', id="upper unicode"),
+    pytest.param('df["t"].apply(lambda s: s.lower())', id="lower"),
+    pytest.param('df["t"].map(lambda s: s.strip())', id="strip"),
+    pytest.param('df["t"].map(lambda s: s.strip("a"))', id="strip chars"),
+    pytest.param('df["t"].map(lambda s: s.lstrip().rstrip("-b"))', id="lstrip rstrip chain"),
+    pytest.param('df["t"].map(lambda s: s.strip().upper())', id="strip upper chain"),
+    pytest.param('df["t"].map(lambda s: (s + "!").upper())', id="concatenate then upper"),
+    pytest.param('df["t"].map(lambda s: s.startswith("a"))', id="startswith"),
+    pytest.param('df["t"].map(lambda s: s.endswith(("b", "y")))', id="endswith tuple"),
+    pytest.param('df["t"].map(lambda s: s.replace("-", "_"))', id="replace all"),
+    pytest.param('df["t"].apply(lambda s: s.replace("a", "A", 1))', id="replace first"),
+    pytest.param('df["t"].map(lambda s: s.upper() if s.startswith("a") else s)', id="if else with string methods"),
+    pytest.param('df["t"].map(lambda s: len(s))', id="len characters not bytes"),
+    pytest.param('df["t"].map(lambda s: len(s) > 2)', id="len comparison"),
+    pytest.param('df["t"].map(lambda s: s + "!")', id="concatenate"),
+    pytest.param('df["k"].map(lambda x: codes.get(x, "other"))', id="dict get default with missing"),
+    pytest.param('df["k"].map(lambda x: codes.get(x))', id="dict get None default"),
+    pytest.param('df["k"].map(lambda x: {"a": 1}.get(x, 0))', id="dict literal get"),
+    pytest.param('df["n"].map(lambda x: str(x))', id="str of ints"),
+    pytest.param('df["n"].map(lambda x: str(x) + "kg")', id="str then concatenate"),
+    pytest.param('df["v"].map(lambda x: str(x))', id="str of floats with NaN"),
+    pytest.param('df["p"].map(lambda x: str(x))', id="str of booleans"),
+    pytest.param('df["v"].map(lambda x: round(x / 3, 1))', id="round half even"),
+    pytest.param('df["v"].map(lambda x: abs(x))', id="abs"),
+    pytest.param('df["s"].map(lambda s: s.upper(), na_action="ignore")', id="na_action ignore on text"),
+    pytest.param('df["v"].map(lambda x: str(x), na_action="ignore")', id="na_action ignore keeps NaN"),
+]
+
+
+@pytest.mark.parametrize("expr", COLUMNS)
+def test_column_matches_pandas(expr: str) -> None:
+    differential(FRAME + f'df["r"] = {expr}\nresult = df\n')
+
+
+def test_map_on_an_empty_frame() -> None:
+    differential(FRAME + """
+none = df[df["n"] > 100]
+none["r"] = none["k"].map(codes)
+none["q"] = none["v"].map(lambda x: "big" if x > 1 else "small")
+result = none
+""")
+
+
+def test_map_result_used_as_a_mask() -> None:
+    differential(FRAME + 'result = df[df["v"].map(lambda x: x > 1)]\nother = df[df["k"].map(codes) == "Apple"]\n',
+                 "result", "other")
+
+
+def test_str_of_floats_lowers_confidence() -> None:
+    result = convert(FRAME + 'r = df["v"].map(lambda x: str(x))\n')
+    site = next(s for s in result.sites if s.key == "series.map")
+    assert site.confidence <= 0.85 and "str()" in site.message
+
+
+def test_float_of_the_parameter_ports() -> None:
+    check_ports(FRAME + 'r = df["n"].map(lambda x: float(x))\n', 'pl.col("n").cast(pl.Float64)')
+
+
+def test_boolean_operators_in_a_lambda_port() -> None:
+    check_ports(FRAME + 'r = df["v"].map(lambda x: x > 1 and x < 5)\n', "&")

@@ -1,0 +1,213 @@
+"""Rule cases and differential checks for porter/rules/selection.py (columns, masks, loc, iloc,
+head/tail, query, columns/shape/len/empty).
+
+pandas is the reference implementation: every differential check runs the snippet with pandas
+and its conversion with Polars and compares what they computed.
+"""
+
+from __future__ import annotations
+
+import pytest
+
+from rule_checks import check_ports, check_todo, check_unchanged
+from support import convert, differential
+
+# NaN and None together, duplicates and ties, unicode text, a name with a space.
+FRAME = """\
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({
+    "kg": [1.5, np.nan, None, 4.0, 4.0, 0.5],
+    "grade": ["A", None, "B", "A", "Éclair", "ünï"],
+    "n": [1, 2, 3, 4, 5, 6],
+    "my col": [1, 1, 2, 2, 3, 3],
+})
+"""
+
+# -- ports ----------------------------------------------------------------------------------
+
+PORTS = [
+    pytest.param('r = df[df["kg"] > 1]', 'df.filter(pl.col("kg") > 1)', id="df[col] in a mask"),
+    pytest.param("r = df[df.kg > 1]", 'df.filter(pl.col("kg") > 1)', id="attribute access"),
+    pytest.param('r = df[["grade", "kg"]]', 'df.select("grade", "kg")', id="list of columns"),
+    pytest.param('cols = ["n", "kg"]\nr = df[cols]', "df.select(cols)", id="variable list of columns"),
+    pytest.param('col = "kg"\nr = df[df[col] > 1]', 'df.filter(pl.col(col) > 1)', id="variable column name"),
+    pytest.param('r = df.loc[df["kg"] > 1, ["grade", "n"]]',
+                 'df.filter(pl.col("kg") > 1).select("grade", "n")', id="loc mask and columns"),
+    pytest.param('r = df.loc[:, ["n", "kg"]]', 'df.select("n", "kg")', id="loc all rows"),
+    pytest.param("r = df.iloc[1:3]", "df.slice(1, 2)", id="iloc slice"),
+    pytest.param("r = df.iloc[2:]", "df.slice(2)", id="iloc open end"),
+    pytest.param("r = df.iloc[-2:]", "df.tail(2)", id="iloc last rows"),
+    pytest.param("r = df.iloc[:4, :]", "df.head(4)", id="iloc rows and all columns"),
+    pytest.param("r = df[1:3]", "df.slice(1, 2)", id="plain row slice"),
+    pytest.param("r = df.head()", "df.head(5)", id="head default five"),
+    pytest.param("r = df.tail(2)", "df.tail(2)", id="tail"),
+    pytest.param('r = df.query("kg > 1 and grade == \'A\'")',
+                 'df.filter((pl.col("kg") > 1) & (pl.col("grade") == "A"))', id="query and"),
+    pytest.param('r = df.query("not kg > 1")', '~(pl.col("kg") > 1).fill_null(False)',
+                 id="query not fills missing with False first"),
+    pytest.param('r = df.query("kg != 4")', '(pl.col("kg") != 4).fill_null(True)',
+                 id="query != is True for missing"),
+    pytest.param('lim = 1\nr = df.query("kg > @lim")', 'pl.col("kg") > lim', id="query @variable"),
+    pytest.param('r = df.query("`my col` == 2")', 'pl.col("my col") == 2', id="query backquotes"),
+    pytest.param('r = df.query("1 < kg <= 4")', '(1 < pl.col("kg")) & (pl.col("kg") <= 4)',
+                 id="query chained comparison"),
+    pytest.param("r = list(df.columns)", "df.collect_schema().names()", id="columns from the schema"),
+    pytest.param("r = len(df)", "df.select(pl.len()).collect().item()", id="len counts rows"),
+    pytest.param("r = df.empty", "df.select(pl.len()).collect().item() == 0", id="empty"),
+    pytest.param('r = df[df["grade"] != "A"]', 'pl.col("grade").ne_missing(pl.lit("A"))',
+                 id="!= keeps missing rows"),
+]
+
+
+@pytest.mark.parametrize("before, expected", PORTS)
+def test_ports(before: str, expected: str) -> None:
+    check_ports(FRAME + before + "\n", expected)
+
+
+TODOS = [
+    pytest.param("r = df.iloc[-3:-1]", "frame.iloc", id="negative slice bounds"),
+    pytest.param("r = df.iloc[0]", "frame.iloc", id="one row by position"),
+    pytest.param("r = df.loc[2]", "frame.loc", id="one row by label"),
+    pytest.param("r = df.head(-2)", "frame.head", id="head negative"),
+    pytest.param("r = df.tail(-2)", "frame.tail", id="tail negative"),
+    pytest.param('r = df.query("grade.str.startswith(\'A\')")', "frame.query", id="query with a method"),
+    pytest.param('r = df.query("index > 2")', "frame.query", id="query on the index"),
+    pytest.param('r = df.query("kg > 1", engine="python")', "frame.query", id="query engine"),
+    pytest.param("r = df.set_index('grade')", "frame.set_index", id="set_index"),
+]
+
+
+@pytest.mark.parametrize("before, key", TODOS)
+def test_todo(before: str, key: str) -> None:
+    check_todo(FRAME + before + "\n", key)
+
+
+def test_todo_iloc_column_position() -> None:
+    check_todo(FRAME + "r = df.iloc[:, 0]\n", "frame.iloc")
+
+
+UNCHANGED = [
+    pytest.param("rows = [3, 1, 2]\nfirst = rows[0:2]\n", id="list slice"),
+    pytest.param("import collections\nq = collections.deque([1, 2])\nq.append(3)\n", id="deque"),
+    pytest.param("class Shelf:\n    def head(self, n):\n        return n\n"
+                 "    def query(self, text):\n        return text\n"
+                 "s = Shelf()\nx = s.head(2)\ny = s.query('kg > 1')\n", id="head and query of another class"),
+    pytest.param("import sqlite3\ncon = sqlite3.connect(':memory:')\ncur = con.execute('select 1')\n",
+                 id="sqlite execute"),
+]
+
+
+@pytest.mark.parametrize("before", UNCHANGED)
+def test_unchanged(before: str) -> None:
+    check_unchanged("import pandas as pd\n" + before)
+
+
+# -- differential ---------------------------------------------------------------------------
+
+FRAMES = [
+    pytest.param('df[df["kg"] > 1]', id="mask drops missing"),
+    pytest.param("df[df.kg >= 4]", id="attribute mask with ties"),
+    pytest.param('df[["grade", "kg"]]', id="columns in the asked order"),
+    pytest.param('df[~(df["kg"] > 1)]', id="negated mask keeps missing"),
+    pytest.param('df[df["grade"] != "A"]', id="!= keeps missing text"),
+    pytest.param('df[df["kg"] > 100]', id="empty result"),
+    pytest.param('df.loc[df["kg"] > 1, ["grade", "n"]]', id="loc mask and columns"),
+    pytest.param('df.loc[df["kg"] > 1, "grade"]', id="loc mask and one column"),
+    pytest.param('df.loc[~(df.kg > 1), ["grade"]]', id="loc negated mask"),
+    pytest.param("df.iloc[1:3]", id="iloc slice"),
+    pytest.param("df.iloc[-2:]", id="iloc tail"),
+    pytest.param("df[2:]", id="slice open end"),
+    pytest.param("df.head(2)", id="head"),
+    pytest.param("df.head(0)", id="head zero"),
+    pytest.param("df.tail(10)", id="tail longer than the frame"),
+    pytest.param('df[df["kg"] > 1]["grade"].head(1)', id="column of a filtered frame"),
+    pytest.param('df["kg"][df["n"] > 2]', id="series masked by another column"),
+    pytest.param('df[df["kg"] > 1].iloc[1:]', id="slice after a filter"),
+    pytest.param("df.query(\"kg > 1 and grade == 'A'\")", id="query and"),
+    pytest.param("df.query(\"kg > 1 or grade == 'B'\")", id="query or"),
+    pytest.param('df.query("not kg > 1")', id="query not with missing"),
+    pytest.param('df.query("not (kg > 1 and n > 2)")', id="query not of and"),
+    pytest.param('df.query("~(kg > 1)")', id="query tilde"),
+    pytest.param("df.query(\"grade in ['A', 'B']\")", id="query in"),
+    pytest.param("df.query(\"grade not in ['A', 'B']\")", id="query not in keeps missing"),
+    pytest.param('df.query("kg != 4")', id="query != keeps missing"),
+    pytest.param('df.query("kg != kg")', id="query NaN differs from itself"),
+    pytest.param('df.query("1 < kg <= 4")', id="query chained"),
+    pytest.param('df.query("n * 2 > kg")', id="query arithmetic"),
+    pytest.param('df.query("`my col` == 2")', id="query backquoted name"),
+    pytest.param("df.query(\"grade == 'Éclair'\")", id="query unicode"),
+    pytest.param("df.query(\"kg > 1.0 and not grade in ['A']\")", id="query and not in"),
+]
+
+
+@pytest.mark.parametrize("expr", FRAMES)
+def test_frame_matches_pandas(expr: str) -> None:
+    differential(FRAME + f"result = {expr}\n")
+
+
+def test_query_with_variables() -> None:
+    differential(FRAME + """
+lim = 1
+names = ["A", "B"]
+result = df.query("kg > @lim and grade in @names")
+""")
+
+
+def test_query_in_a_list_holding_none_matches_missing() -> None:
+    # pandas' `in` matches a missing value against None in the list.
+    differential(FRAME + """
+names = ["A", None]
+result = df.query("grade in @names")
+other = df.query("grade not in @names")
+""", "result", "other")
+
+
+SCALARS = [
+    pytest.param("list(df.columns)", id="columns"),
+    pytest.param("df.shape", id="shape"),
+    pytest.param("len(df)", id="len"),
+    pytest.param('len(df[df.kg > 100])', id="len of empty"),
+    pytest.param('len(df["kg"])', id="len of a column counts missing"),
+    pytest.param("df.empty", id="empty false"),
+    pytest.param("df[df.kg > 100].empty", id="empty true"),
+    pytest.param("df.query(\"kg > 1\").shape", id="shape after query"),
+]
+
+
+@pytest.mark.parametrize("expr", SCALARS)
+def test_scalar_matches_pandas(expr: str) -> None:
+    differential(FRAME + f"result = {expr}\n")
+
+
+def test_mask_held_in_a_variable() -> None:
+    differential(FRAME + 'm = df["kg"] > 1\nresult = df[m]\nother = df[~m]\n', "result", "other")
+
+
+def test_unicode_column_names_and_empty_frame() -> None:
+    differential("""
+        import pandas as pd
+        df = pd.DataFrame({"Éclair": [1, 2], "ünï": ["a", "b"]})
+        none = df[df["Éclair"] > 5]
+        result = none[["ünï"]]
+        count = len(none)
+        """, "result", "count")
+
+
+def test_shape_subscript() -> None:
+    differential(FRAME + "result = df.shape[0]\n")
+
+
+def test_series_taken_before_the_frame_is_filtered() -> None:
+    differential(FRAME + """
+s = df["n"]
+df = df[df["n"] > 3]
+result = s.sum()
+""")
+
+
+def test_site_confidence_for_an_unknown_column_variable() -> None:
+    # A name porter cannot see is taken to hold one column name: it says so.
+    result = convert(FRAME + "def pick():\n    return 'kg'\ncol = pick()\nr = df[df[col] > 1]\n")
+    site = next(s for s in result.sites if s.key == "frame.getitem.column")
+    assert site.confidence <= 0.85
