@@ -321,7 +321,7 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: percentiles interpolated linearly like pandas (Polars' default is "nearest");
     booleans and text left out like pandas; the statistics as a column named "index" (pandas
     keeps them in an unnamed index, which reset_index() names "index").
-    Caveats: to_csv with the index writes the header "index" where pandas writes none.
+    Caveats: to_csv with the index writes the header "" (quoted) where pandas writes nothing.
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
@@ -347,5 +347,5 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("describe of a frame without numeric columns describes text in pandas")
     numeric_cols = tuple(c for c in frame.columns or () if frame.dtype(c) in ("int", "float")) or None
     columns = ("index", *numeric_cols) if numeric_cols else None
-    return Frame(code, columns=columns, index=("index",), labels_intact=False)
+    return Frame(code, columns=columns, index=("index",), labels_intact=False, index_unnamed=True)
 

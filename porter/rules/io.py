@@ -209,6 +209,7 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.handover = True
         ctx.lower("index=True writes the row labels: handed over to pandas for the write", 1.0)
         return Scalar(handover.to_pandas(frame).method("to_csv", target.code))
+    frame = written_index(frame, bool(index))
     kwargs: dict[str, object] = {}
     sep = call.const("sep", None, ",")
     if sep != ",":
@@ -224,6 +225,20 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     if frame.columns is not None and len(frame.dtypes) == len(frame.columns):
         ctx.confidence = max(ctx.confidence, 0.98)  # every column's type is known and handled
     return Scalar(frame.code.method("sink_csv", target.code, **kwargs))
+
+
+def written_index(frame: Frame, index: bool) -> Frame:
+    """The columns porter keeps for pandas' index: left out with index=False; an unnamed index
+    (describe) is written under an empty header, as pandas writes it."""
+    if not frame.index:
+        return frame
+    if not index:
+        columns = tuple(c for c in frame.columns if c not in frame.index) if frame.columns else None
+        return derive(frame, frame.code.method("drop", *frame.index), same_rows=True,
+                      columns=columns, index=())
+    if frame.index_unnamed and len(frame.index) == 1:
+        return derive(frame, frame.code.method("rename", {frame.index[0]: ""}), same_rows=True)
+    return frame
 
 
 def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
@@ -256,6 +271,7 @@ def to_parquet(call: PandasCall, ctx: RuleContext) -> Value:
     index = call.const("index", None, None)
     if index and not frame.index:
         raise ctx.todo("index=True stores the row labels as a column; add it with with_row_index")
+    frame = written_index(frame, index is not False)
     kwargs: dict[str, object] = {}
     compression = call.const("compression", None, None)
     if compression is not None:

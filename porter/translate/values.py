@@ -56,6 +56,7 @@ class Frame(Value):
     index: tuple[str, ...] = field(default=(), kw_only=True)
     labels_intact: bool = field(default=True, kw_only=True)
     binding: int | None = field(default=None, kw_only=True)  # the assignment that named it
+    index_unnamed: bool = field(default=False, kw_only=True)  # pandas' index has no name
 
     def dtype(self, column: str) -> str | None:
         return dict(self.dtypes).get(column)

@@ -1,0 +1,158 @@
+"""Allotment society: this year's fee for every plot, payments received, and balances per section.
+
+The fee is a rate per square metre plus a surcharge for plots with a water tap.
+The payments sheet uses the plot number only, and some payments are for plot
+numbers that no longer exist after the re-survey.
+"""
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+RATE_PER_M2 = 0.45
+TAP_SURCHARGE = {"Y": 15.0, "N": 0.0}
+
+
+def load_plots(path):
+    plots = pl.scan_csv(path, null_values=PANDAS_NA_VALUES, infer_schema_length=None)
+    plots = plots.rename({"water_tap": "tap"}, strict=False)
+    plots = plots.with_columns(
+        section=pl.col("section").str.strip_chars().str.to_uppercase(),
+    )
+    plots = plots.with_columns(
+        tap=pl.col("tap").replace({"yes": "Y", "no": "N"}).fill_null(pl.lit("N")),
+    )
+    plots = plots.with_columns(tenant=pl.col("tenant").fill_null(pl.lit("vacant")))
+    plots = plots.with_columns(
+        fee=(pl.col("size_m2") * RATE_PER_M2 + pl.col("tap").replace_strict(TAP_SURCHARGE, default=None)).round(2),
+    )
+    plots = plots.with_columns(
+        plot_label=pl.lit("P-") + pl.col("plot_no").cast(pl.String),
+    )
+    return plots
+
+
+def load_payments(path):
+    payments = pl.scan_csv(path, null_values=PANDAS_NA_VALUES, infer_schema_length=None).with_columns(
+        pl.col("paid_on").str.to_datetime(time_unit="us"),
+    )
+    payments = payments.with_columns(
+        method=pl.col("method").str.strip_chars().str.to_lowercase().replace("chq", "cheque"),
+    )
+    return payments.filter(pl.col("amount") > 0)
+
+
+def main():
+    plots = load_plots("data/plots.csv")
+    payments = load_payments("data/payments.csv")
+    print(plots.collect_schema())
+
+    paid = (
+        payments
+        .drop_nulls("plot")
+        .group_by("plot")
+        .agg(
+            pl.col("amount").sum().alias("paid"),
+            pl.col("amount").count().cast(pl.Int64).alias("payments"),
+        )
+        .sort("plot")
+    )
+    ledger = (
+        plots
+        .rename(
+            lambda c, other=paid.collect_schema().names(): c + "_x" if c in other and c not in ("plot_no",) else c,
+        )
+        .join(
+            paid.rename(lambda c, other=plots.collect_schema().names(): c + "_y" if c in other and c not in ("plot",) else c),
+            left_on="plot_no",
+            right_on="plot",
+            how="left",
+            coalesce=False,
+            nulls_equal=True,
+            maintain_order="left_right",
+        )
+        .drop("plot")
+    )
+    ledger = ledger.with_columns(
+        paid=pl.col("paid").fill_null(0),
+        payments=pl.col("payments").fill_null(0),
+    )
+    ledger = ledger.with_columns(balance=(pl.col("fee") - pl.col("paid")).round(2))
+    ledger = (
+        ledger
+        .with_columns(label_length=pl.col("plot_label").str.len_chars().cast(pl.Int64))
+        .collect()
+        .lazy()
+    )
+    ledger.with_columns(PANDAS_CSV_DATETIMES).sink_csv("ledger.csv")
+    print(pl.concat([
+        ledger.select(pl.lit("count").alias("index"), pl.selectors.numeric().count().cast(pl.Float64)),
+        ledger.select(pl.lit("mean").alias("index"), pl.selectors.numeric().mean()),
+        ledger.select(pl.lit("std").alias("index"), pl.selectors.numeric().std()),
+        ledger.select(pl.lit("min").alias("index"), pl.selectors.numeric().min().cast(pl.Float64)),
+        ledger.select(pl.lit("25%").alias("index"), pl.selectors.numeric().quantile(0.25, "linear")),
+        ledger.select(pl.lit("50%").alias("index"), pl.selectors.numeric().quantile(0.5, "linear")),
+        ledger.select(pl.lit("75%").alias("index"), pl.selectors.numeric().quantile(0.75, "linear")),
+        ledger.select(pl.lit("max").alias("index"), pl.selectors.numeric().max().cast(pl.Float64)),
+    ]).collect())
+
+    sections = (
+        ledger
+        .drop_nulls("section")
+        .group_by("section")
+        .agg(
+            pl.col("fee").sum().alias("fee"),
+            pl.col("paid").sum().alias("paid"),
+            pl.col("balance").sum().alias("balance"),
+        )
+        .sort("section")
+    )
+    sections.with_columns(PANDAS_CSV_DATETIMES).sink_csv("section_balances.csv")
+
+    arrears = (
+        ledger
+        .filter((pl.col("balance") > 0) & pl.col("tenant").ne_missing(pl.lit("vacant")))
+        .select("plot_label", "tenant", "balance")
+    )
+    arrears = (
+        arrears
+        .sort(
+            ["balance", "plot_label"],
+            descending=[True, False],
+            nulls_last=True,
+            maintain_order=True,
+        )
+        .head(15)
+    )
+    arrears.with_columns(PANDAS_CSV_DATETIMES).sink_csv("in_arrears.csv")
+
+    methods = (
+        payments
+        .select(pl.col("method"))
+        .drop_nulls()
+        .group_by("method", maintain_order=True)
+        .agg(pl.len().cast(pl.Int64).alias("count"))
+        .sort("count", descending=True, maintain_order=True)
+    )
+    print(methods.collect())
+    print(
+        payments.select(pl.col("amount").sum()).collect().item(),
+        ledger.select(pl.len()).collect().item(),
+    )
+
+
+if __name__ == "__main__":
+    main()

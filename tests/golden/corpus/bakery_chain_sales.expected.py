@@ -1,0 +1,136 @@
+"""Bakery chain of four shops: one week of sales per shop, typical daily volumes per product,
+what each shop sold first and last in the week, and the products that waste the least.
+
+Waste is counted at closing; a blank waste cell means nobody counted it.
+"""
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+sales = pl.scan_csv("data/sales.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None).with_columns(
+    pl.col("sale_date").str.to_datetime(time_unit="us"),
+)
+print((sales.select(pl.len()).collect().item(), len(sales.collect_schema())))
+
+sales = sales.with_columns(
+    revenue=(pl.col("units") * pl.col("unit_price")).round(2),
+    day=pl.col("sale_date").dt.day(),
+    waste_units=pl.col("waste_units").fill_null(0),
+)
+
+shop_stats = (
+    sales
+    .drop_nulls("shop")
+    .group_by("shop")
+    .agg(
+        pl.col("sale_date").drop_nulls().n_unique().cast(pl.Int64).alias("days"),
+        pl.col("revenue").sum().alias("revenue"),
+        pl.col("units").median().alias("median_units"),
+        pl.col("units").std().alias("units_std"),
+        pl.col("unit_price").min().alias("cheapest"),
+        pl.col("unit_price").max().alias("dearest"),
+        pl.col("product").count().cast(pl.Int64).alias("lines"),
+    )
+    .sort("shop")
+    .with_columns(pl.selectors.float().round(2))
+    .collect()
+    .lazy()
+)
+shop_stats.with_columns(PANDAS_CSV_DATETIMES).sink_csv("shop_stats.csv")
+print(shop_stats.collect())
+
+typical = (
+    sales
+    .drop_nulls(["category", "product"])
+    .group_by(["category", "product"])
+    .agg(pl.col("units").median())
+    .sort(["category", "product"])
+)
+products_per_shop = (
+    sales
+    .drop_nulls("shop")
+    .group_by("shop")
+    .agg(pl.col("product").drop_nulls().n_unique().cast(pl.Int64))
+    .sort("shop")
+)
+products_per_shop = products_per_shop.rename({"product": "products_sold"})
+week = sales.sort(
+    ["shop", "sale_date", "product"],
+    nulls_last=True,
+    maintain_order=True,
+)
+opening = (
+    week
+    .drop_nulls("shop")
+    .group_by("shop")
+    .agg(
+        pl.col("sale_date").first(ignore_nulls=True),
+        pl.col("product").first(ignore_nulls=True),
+        pl.col("units").first(ignore_nulls=True),
+    )
+    .sort("shop")
+)
+closing = (
+    week
+    .drop_nulls("shop")
+    .group_by("shop")
+    .agg(
+        pl.col("sale_date").last(ignore_nulls=True),
+        pl.col("product").last(ignore_nulls=True),
+        pl.col("units").last(ignore_nulls=True),
+    )
+    .sort("shop")
+)
+first_last = (
+    opening
+    .rename(
+        {"sale_date": "sale_date_first", "product": "product_first", "units": "units_first"},
+    )
+    .join(
+        closing.rename({"sale_date": "sale_date_last", "product": "product_last", "units": "units_last"}),
+        on="shop",
+        how="inner",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+    .join(
+        products_per_shop,
+        on="shop",
+        how="inner",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+)
+pl.collect_all([
+    typical.with_columns(PANDAS_CSV_DATETIMES).sink_csv("typical_units.csv", lazy=True),
+    first_last.with_columns(PANDAS_CSV_DATETIMES).sink_csv("first_and_last.csv", lazy=True),
+])
+
+least_waste = (
+    sales
+    .filter(pl.col("units") > 0)
+    .with_columns(
+        waste_rate=(pl.col("waste_units") / pl.col("units")).fill_nan(None).round(3),
+    )
+    .sort("waste_rate", nulls_last=True, maintain_order=True)
+    .head(8)
+    .select("sale_date", "shop", "product", "units", "waste_units", "waste_rate")
+    .collect()
+    .lazy()
+)
+least_waste.with_columns(PANDAS_CSV_DATETIMES).sink_csv("least_waste.csv")
+print(least_waste.tail(3).collect())

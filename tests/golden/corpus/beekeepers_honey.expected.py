@@ -1,0 +1,118 @@
+"""Beekeepers' association: combine the spring and summer harvest sheets, check honey moisture,
+and total the honey per hive and per apiary.
+
+The summer sheet has no frame count but adds a varroa count; some summer rows
+were typed twice, and the later entry is the corrected one.
+"""
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+APIARIES = pl.LazyFrame(
+    {"apiary": ["combe aux abeilles", "pré haut", "rucher du moulin"], "altitude_m": [640, 1120, 415]},
+    strict=False,
+)
+MAX_MOISTURE = 18.6
+
+
+def load_season(path, season):
+    sheet = pl.scan_csv(path, null_values=PANDAS_NA_VALUES, infer_schema_length=None).with_columns(
+        pl.col("harvest_date").str.to_datetime(time_unit="us"),
+    )
+    return sheet.with_columns(season=pl.lit(season))
+
+
+def main():
+    spring = load_season("data/spring_2024.csv", "spring")
+    summer = load_season("data/summer_2024.csv", "summer")
+    harvests = pl.concat([spring, summer], how="diagonal_relaxed")
+    print(harvests.select(pl.len()).collect().item())
+
+    harvests = harvests.unique(
+        ["hive_id", "harvest_date"],
+        keep="last",
+        maintain_order=True,
+    )
+    harvests = harvests.with_columns(
+        keeper=pl.col("keeper").str.strip_chars().str.to_lowercase(),
+    )
+    harvests = harvests.with_columns(
+        apiary=pl.col("apiary").str.strip_chars().str.to_lowercase(),
+    )
+    harvests = harvests.with_columns(
+        moisture_check=pl.when(pl.col("moisture_pct") > MAX_MOISTURE).then(pl.lit("fail")).otherwise(pl.lit("pass")),
+    )
+    print(
+        harvests.select(pl.col("moisture_check")).drop_nulls().group_by("moisture_check", maintain_order=True).agg(pl.len().cast(pl.Int64).alias("count")).sort("count", descending=True, maintain_order=True).collect(),
+    )
+
+    per_hive = (
+        harvests
+        .drop_nulls(["hive_id", "season"])
+        .group_by(["hive_id", "season"])
+        .agg(
+            pl.col("keeper").first(ignore_nulls=True).alias("keeper"),
+            pl.col("honey_kg").sum().alias("total_kg"),
+            pl.col("harvest_date").count().cast(pl.Int64).alias("harvests"),
+            pl.col("moisture_pct").max().alias("wettest"),
+        )
+        .sort(["hive_id", "season"])
+    )
+    per_hive.with_columns(PANDAS_CSV_DATETIMES).sink_csv("hive_totals.csv")
+
+    per_apiary = (
+        harvests
+        .drop_nulls("apiary")
+        .group_by("apiary")
+        .agg(
+            pl.col("honey_kg").sum().alias("honey_kg"),
+            pl.col("moisture_pct").mean().alias("moisture_pct"),
+            pl.col("hive_id").drop_nulls().n_unique().cast(pl.Int64).alias("hive_id"),
+        )
+        .sort("apiary")
+    )
+    per_apiary = per_apiary.join(
+        APIARIES,
+        on="apiary",
+        how="left",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+    per_apiary = (
+        per_apiary
+        .with_columns(moisture_pct=pl.col("moisture_pct").round(2))
+        .collect()
+        .lazy()
+    )
+    per_apiary.with_columns(PANDAS_CSV_DATETIMES).sink_csv("apiary_totals.csv")
+    print(per_apiary.collect())
+
+    stats = pl.concat([
+        harvests.select("honey_kg", "moisture_pct", "frames", "varroa_per_100").select(pl.lit("count").alias("index"), pl.selectors.numeric().count().cast(pl.Float64)),
+        harvests.select("honey_kg", "moisture_pct", "frames", "varroa_per_100").select(pl.lit("mean").alias("index"), pl.selectors.numeric().mean()),
+        harvests.select("honey_kg", "moisture_pct", "frames", "varroa_per_100").select(pl.lit("std").alias("index"), pl.selectors.numeric().std()),
+        harvests.select("honey_kg", "moisture_pct", "frames", "varroa_per_100").select(pl.lit("min").alias("index"), pl.selectors.numeric().min().cast(pl.Float64)),
+        harvests.select("honey_kg", "moisture_pct", "frames", "varroa_per_100").select(pl.lit("25%").alias("index"), pl.selectors.numeric().quantile(0.25, "linear")),
+        harvests.select("honey_kg", "moisture_pct", "frames", "varroa_per_100").select(pl.lit("50%").alias("index"), pl.selectors.numeric().quantile(0.5, "linear")),
+        harvests.select("honey_kg", "moisture_pct", "frames", "varroa_per_100").select(pl.lit("75%").alias("index"), pl.selectors.numeric().quantile(0.75, "linear")),
+        harvests.select("honey_kg", "moisture_pct", "frames", "varroa_per_100").select(pl.lit("max").alias("index"), pl.selectors.numeric().max().cast(pl.Float64)),
+    ])
+    stats.with_columns(PANDAS_CSV_DATETIMES).sink_csv("honey_describe.csv")
+
+
+if __name__ == "__main__":
+    main()

@@ -1,0 +1,119 @@
+"""Dairy co-op cheese cellar: weight lost by each wheel while ageing, which wheels are
+ready for sale, and how evenly each cave dries its cheeses.
+
+Wheels that gained weight are scale errors and count as zero loss; a missing
+current weight means the wheel has not been weighed this month.
+"""
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+wheels = pl.scan_csv("data/wheels.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None).with_columns(
+    pl.col("made_on").str.to_datetime(time_unit="us"),
+)
+wheels = wheels.drop_nulls("now_kg")
+print(wheels.select(pl.len()).collect().item())
+
+
+def sale_status(row):
+    # the affineurs' rule of thumb, kept exactly as they wrote it down
+    if row["loss_pct"] >= 8 and row["rind_score"] >= 4:
+        return "ready"
+    if row["loss_pct"] >= 8:
+        return "check rind"
+    return "keep ageing"
+
+
+wheels = wheels.with_columns(turns=pl.col("turns").fill_null(0).cast(pl.Int64))
+wheels = wheels.with_columns(
+    loss_pct=(((pl.col("start_kg") - pl.col("now_kg")) / pl.col("start_kg")).fill_nan(None) * 100).round(2),
+)
+wheels = wheels.with_columns(loss_pct=pl.col("loss_pct").clip(0, None))
+wheels = wheels.with_columns(made_month=pl.col("made_on").dt.month())
+# TODO(porter): frame.apply: write the function as column expressions (pl.when / arithmetic); map_elements is a last resort
+# TODO(porter): frame.setitem: a Series computed by pandas is put back by position (pandas aligns it on the index); port the computation to an expression
+wheels = wheels.with_columns(
+    status=pl.Series(wheels.collect().to_pandas().apply(sale_status, axis=1), nan_to_null=True),
+)
+wheels = wheels.with_columns(recipe=pl.col("recipe").cast(pl.Categorical))
+
+status = (
+    wheels
+    .select("wheel_id", "recipe", "cellar", "made_month", "turns", "loss_pct", "status")
+    .collect()
+    .lazy()
+)
+status.with_columns(PANDAS_CSV_DATETIMES).sink_csv("wheel_status.csv")
+print(status.tail(5).collect())
+
+spread = (
+    wheels
+    .drop_nulls("cellar")
+    .group_by("cellar")
+    .agg(pl.col("loss_pct").std())
+    .sort("cellar")
+)
+lowest = (
+    wheels
+    .drop_nulls("cellar")
+    .group_by("cellar")
+    .agg(pl.col("loss_pct").min())
+    .sort("cellar")
+)
+highest = (
+    wheels
+    .drop_nulls("cellar")
+    .group_by("cellar")
+    .agg(pl.col("loss_pct").max())
+    .sort("cellar")
+)
+caves = (
+    spread
+    .rename({"loss_pct": "loss_pct_std"})
+    .join(
+        lowest.rename({"loss_pct": "loss_pct_min"}),
+        on="cellar",
+        how="inner",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+    .join(
+        highest.rename({"loss_pct": "loss_pct_max"}),
+        on="cellar",
+        how="inner",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+    .with_columns(pl.selectors.float().round(2))
+)
+caves.with_columns(PANDAS_CSV_DATETIMES).sink_csv("cave_spread.csv")
+
+by_recipe = (
+    wheels
+    .drop_nulls("recipe")
+    .group_by("recipe")
+    .agg(
+        pl.col("wheel_id").count().cast(pl.Int64).alias("wheels"),
+        pl.col("loss_pct").mean().alias("mean_loss"),
+    )
+    .sort("recipe")
+)
+by_recipe = by_recipe.with_columns(mean_loss=pl.col("mean_loss").round(2))
+by_recipe.with_columns(PANDAS_CSV_DATETIMES).sink_csv("recipe_loss.csv")
+print(
+    wheels.select(pl.col("status")).drop_nulls().group_by("status", maintain_order=True).agg(pl.len().cast(pl.Int64).alias("count")).sort("count", descending=True, maintain_order=True).collect(),
+)

@@ -1,0 +1,111 @@
+"""Textile dye works: water used per dye, liters per kilo of cloth, and the rejected or rushed batches.
+
+Batch codes look like IND-0041-W (dye prefix, number, fabric: W wool,
+C cotton, L linen) but are typed with stray spaces and lower case.
+Cloth weight 0 means a test vat with no cloth: its liters-per-kilo is left unguarded.
+"""
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+DYE_COSTS = pl.LazyFrame(
+    {"dye": ["indigo", "madder", "weld", "walnut", "cochineal"], "cost_per_liter": [0.42, 0.35, 0.18, 0.12, 0.95]},
+    strict=False,
+)
+
+
+def tidy_codes(batches):
+    batches = batches.with_columns(
+        batch_code=pl.col("batch_code").str.strip_chars().str.to_uppercase(),
+    )
+    batches = batches.with_columns(prefix=pl.col("batch_code").str.head(3))
+    batches = batches.with_columns(
+        wool=pl.col("batch_code").str.ends_with("-W").fill_null(False),
+    )
+    batches = batches.with_columns(
+        dye=pl.col("dye").str.strip_chars().str.to_lowercase().str.replace_all(" hull", "", literal=True),
+    )
+    return batches
+
+
+def flag_status(batches):
+    status = pl.col("status").str.to_lowercase()
+    batches = batches.with_columns(
+        rejected=status.str.starts_with("rejected").fill_null(False),
+    )
+    batches = batches.with_columns(rush=status.str.contains("rush").fill_null(False))
+    batches = batches.with_columns(note_length=status.str.len_chars().cast(pl.Int64))
+    return batches
+
+
+batches = flag_status(
+    tidy_codes(pl.scan_csv("data/batches.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)),
+)
+batches = batches.with_columns(shift=pl.col("shift").cast(pl.Categorical))
+batches = batches.with_columns(
+    liters_per_kg=(pl.col("liters_used") / pl.col("fabric_kg")).fill_nan(None),
+)
+batches = batches.with_columns(
+    heat=pl.when(pl.col("temp_c") >= 95).then(pl.lit("boil")).otherwise(pl.lit("hot")),
+)
+print(batches.head(5).collect())
+
+water = (
+    batches
+    .drop_nulls("dye")
+    .group_by("dye")
+    .agg(
+        pl.col("liters_used").sum().alias("sum"),
+        pl.col("liters_used").mean().alias("mean"),
+    )
+    .sort("dye")
+)
+water = water.join(
+    DYE_COSTS,
+    on="dye",
+    how="left",
+    nulls_equal=True,
+    maintain_order="left_right",
+)
+water = water.with_columns(cost=(pl.col("sum") * pl.col("cost_per_liter")).round(2))
+water.sink_csv("water_per_dye.csv")
+
+flagged = batches.filter(pl.col("rejected") | pl.col("rush"))
+(
+    flagged
+    .select("batch_code", "dye", "shift", "wool", "status", "note_length")
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("flagged_batches.csv")
+)
+
+per_shift = (
+    batches
+    .drop_nulls("shift")
+    .group_by("shift")
+    .agg(
+        pl.col("batch_code").count().cast(pl.Int64).alias("batches"),
+        pl.col("rejected").sum().alias("rejected"),
+        pl.col("wool").sum().alias("wool"),
+    )
+    .sort("shift")
+    .collect()
+    .lazy()
+)
+per_shift.sink_csv("shift_report.csv")
+print(per_shift.collect())
+
+intensity = (
+    batches
+    .select("batch_code", "prefix", "heat", "liters_per_kg")
+    .sort(
+        ["liters_per_kg", "batch_code"],
+        descending=[True, False],
+        nulls_last=True,
+        maintain_order=True,
+    )
+)
+intensity.head(10).sink_csv("thirstiest_batches.csv")

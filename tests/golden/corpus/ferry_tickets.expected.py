@@ -1,0 +1,120 @@
+"""Ferry line: tidy the June ticket log, then revenue per route, fare-class counts and weekend sailings.
+
+Ticket numbers keep their leading zeros; '?' in the fare class means the
+clerk could not read the stub.
+"""
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+VEHICLE_FEE = {"yes": 12.5, "no": 0.0}
+
+tickets = pl.scan_csv(
+    "data/tickets.csv",
+    null_values=PANDAS_NA_VALUES + ["?"],
+    schema_overrides={"ticket_no": pl.String},
+    infer_schema_length=None,
+)
+routes = pl.scan_csv(
+    "data/routes.csv",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
+)
+print(tickets.collect_schema())
+
+tickets = tickets.rename(
+    {"Sail Date": "sail_date", "Route": "route_code", "Fare Class": "fare_class"},
+    strict=False,
+)
+tickets = tickets.drop("paid_by")
+tickets = tickets.with_columns(
+    fare_class=pl.col("fare_class").fill_null(pl.lit("unknown")),
+    vehicle=pl.col("vehicle").fill_null(pl.lit("no")),
+)
+
+tickets = tickets.with_columns(
+    route_code=pl.col("route_code").str.strip_chars().str.to_uppercase(),
+)
+tickets = tickets.with_columns(fare_class=pl.col("fare_class").str.to_lowercase())
+tickets = tickets.with_columns(
+    vehicle=pl.col("vehicle").str.strip_chars().str.to_lowercase(),
+)
+tickets = tickets.with_columns(
+    vehicle_fee=pl.col("vehicle").replace_strict(VEHICLE_FEE, default=None),
+)
+tickets = tickets.with_columns(
+    revenue=pl.col("passengers") * pl.col("fare") + pl.col("vehicle_fee"),
+)
+tickets = tickets.with_columns(
+    sail_date=pl.col("sail_date").str.to_datetime("%Y-%m-%d"),
+)
+tickets = tickets.with_columns(weekday=pl.col("sail_date").dt.weekday() - 1)
+
+tickets = tickets.sort(["sail_date", "ticket_no"], nulls_last=True, maintain_order=True)
+tickets = tickets.collect().lazy()
+print(tickets.head(5).collect())
+
+per_route = (
+    tickets
+    .drop_nulls("route_code")
+    .group_by("route_code")
+    .agg(
+        pl.col("passengers").sum().alias("passengers"),
+        pl.col("revenue").sum().alias("revenue"),
+        pl.col("fare").mean().alias("fare"),
+    )
+    .sort("route_code")
+)
+per_route = (
+    per_route
+    .rename(
+        lambda c, other=routes.collect_schema().names(): c + "_x" if c in other and c not in ("route_code",) else c,
+    )
+    .join(
+        routes.rename(lambda c, other=per_route.collect_schema().names(): c + "_y" if c in other and c not in ("route_code",) else c),
+        on="route_code",
+        how="left",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+)
+per_route = per_route.with_columns(
+    revenue_per_seat=(pl.col("revenue") / pl.col("seats")).fill_nan(None).round(2),
+)
+per_route.sink_parquet("route_summary.parquet")
+
+class_counts = (
+    tickets
+    .select(pl.col("fare_class"))
+    .drop_nulls()
+    .group_by("fare_class", maintain_order=True)
+    .agg(pl.len().cast(pl.Int64).alias("count"))
+    .sort("count", descending=True, maintain_order=True)
+)
+class_counts.with_columns(PANDAS_CSV_DATETIMES).sink_csv("fare_classes.csv")
+
+weekend = tickets.filter(pl.col("weekday") >= 5).collect().lazy()
+(
+    weekend
+    .select("ticket_no", "sail_date", "route_code", "passengers", "revenue")
+    .with_columns(PANDAS_CSV_DATETIMES)
+    .sink_csv("weekend_sailings.csv")
+)
+print(
+    weekend.select(pl.len()).collect().item(),
+    tickets.select(pl.col("revenue").sum()).collect().item(),
+)

@@ -1,0 +1,115 @@
+"""Fishing cooperative: landed catch against quota for each boat and species, and a season total per boat.
+
+Species names are spelled every which way at the quay; an ice-box count of -1
+means "not counted". A quota of 0 is a suspended licence, so the share used
+is left as the raw division (inf or NaN) for the office to spot.
+"""
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+SPELLINGS = {"anchovie": "anchovy", "sardines": "sardine"}
+
+
+def clean_landings(landings):
+    landings = landings.with_columns(
+        species=pl.col("species").str.strip_chars().str.to_lowercase(),
+    )
+    landings = landings.with_columns(
+        species=pl.col("species").replace({"anchovie": "anchovy", "sardines": "sardine"}),
+    )
+    landings = landings.with_columns(ice_boxes=pl.col("ice_boxes").replace(-1, 0))
+    landings = landings.with_columns(
+        value_eur=(pl.col("catch_kg") * pl.col("price_per_kg")).round(2),
+    )
+    return landings
+
+
+def quota_status(landings, quota):
+    landed = (
+        landings
+        .drop_nulls(["boat", "species"])
+        .group_by(["boat", "species"])
+        .agg(
+            pl.col("catch_kg").sum().alias("landed_kg"),
+            pl.col("port").last(ignore_nulls=True).alias("port"),
+        )
+        .sort(["boat", "species"])
+    )
+    status = (
+        landed
+        .rename(
+            lambda c, other=quota.collect_schema().names(): c + "_landed" if c in other and c not in ("boat", "species") else c,
+        )
+        .join(
+            quota.rename(lambda c, other=landed.collect_schema().names(): c + "_home" if c in other and c not in ("boat", "species") else c),
+            on=["boat", "species"],
+            how="full",
+            coalesce=True,
+            nulls_equal=True,
+            maintain_order="left_right",
+        )
+        .sort(["boat", "species"], nulls_last=True, maintain_order=True)
+    )
+    status = status.with_columns(
+        landed_kg=pl.col("landed_kg").fill_null(0),
+        quota_kg=pl.col("quota_kg").fill_null(0),
+    )
+    status = status.with_columns(
+        used_share=(pl.col("landed_kg") / pl.col("quota_kg")).fill_nan(None).round(2),
+    )
+    status = status.with_columns(
+        over_quota=(pl.col("landed_kg") > pl.col("quota_kg")).fill_null(False),
+    )
+    status = status.with_columns(
+        away_port=(pl.col("port_landed") != pl.col("port_home")).fill_null(True),
+    )
+    return status
+
+
+def boat_totals(landings):
+    totals = (
+        landings
+        .drop_nulls("boat")
+        .group_by("boat")
+        .agg(
+            pl.col("landing_id").drop_nulls().n_unique().cast(pl.Int64).alias("trips"),
+            pl.col("catch_kg").sum().alias("catch_kg"),
+            pl.col("value_eur").sum().alias("value_eur"),
+            pl.col("ice_boxes").sum().alias("ice_boxes"),
+            pl.col("price_per_kg").max().alias("best_price"),
+        )
+        .sort("boat")
+    )
+    return totals.with_columns(pl.selectors.float().round(2))
+
+
+landings = (
+    clean_landings(pl.scan_csv("data/landings.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None))
+    .collect()
+    .lazy()
+)
+quota = pl.scan_csv(
+    "data/quota.csv",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
+)
+print(
+    landings.select(pl.col("species").unique(maintain_order=True)).collect().to_series(),
+)
+
+status = quota_status(landings, quota).collect().lazy()
+(
+    status
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("quota_status.csv")
+)
+print(status.filter(pl.col("over_quota")).collect())
+
+totals = boat_totals(landings).collect().lazy()
+totals.sink_csv("boat_totals.csv")
+print(totals.select(pl.col("catch_kg").sum()).collect().item())

@@ -1,0 +1,114 @@
+"""Botanical greenhouse: daily climate averages per glasshouse, the gaps in the sensor log,
+and the days a house ran too hot.
+
+Sensors write 'err' when a probe fails; the arid house has no soil probe at
+all, which the curators count as bone dry (0).
+"""
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+SENSORS = ["temp_c", "humidity_pct", "soil_moisture", "co2_ppm"]
+HOT_LIMIT = {"tropical": 30, "arid": 34, "fern gully": 24}
+
+log = pl.scan_csv(
+    "data/sensors.csv",
+    null_values=PANDAS_NA_VALUES + ["err"],
+    infer_schema_length=None,
+)
+print(log.select(pl.len()).collect().item())
+
+log = log.with_columns(house=pl.col("house").str.strip_chars().str.to_lowercase())
+log = log.with_columns(
+    reading_time=pl.col("reading_time").str.to_datetime("%Y-%m-%d %H:%M"),
+)
+log = log.with_columns(day=pl.col("reading_time").dt.date())
+
+gaps = (
+    log
+    .filter(pl.col("temp_c").is_null() | pl.col("humidity_pct").is_null())
+    .collect()
+    .lazy()
+)
+(
+    gaps
+    .select("reading_time", "house", "temp_c", "humidity_pct")
+    .with_columns(PANDAS_CSV_DATETIMES)
+    .sink_csv("sensor_gaps.csv")
+)
+print(gaps.select(pl.len()).collect().item(), "readings with a gap")
+
+log = log.filter(
+    ~pl.all_horizontal(pl.col(["temp_c", "humidity_pct", "soil_moisture", "co2_ppm"]).is_null()),
+)
+log = log.with_columns(soil_moisture=pl.col("soil_moisture").fill_null(0))
+log = log.filter(pl.sum_horizontal(pl.all().is_not_null()) >= 6)
+print(log.select(pl.len()).collect().item(), "usable readings")
+
+daily = (
+    log
+    .drop_nulls(["house", "day"])
+    .group_by(["house", "day"])
+    .agg(
+        pl.col("temp_c").mean(),
+        pl.col("humidity_pct").mean(),
+        pl.col("soil_moisture").mean(),
+        pl.col("co2_ppm").mean(),
+    )
+    .sort(["house", "day"])
+)
+daily = daily.with_columns(pl.selectors.float().round(2))
+daily = daily.with_columns(
+    hot_limit=pl.col("house").replace_strict(HOT_LIMIT, default=None),
+)
+daily = (
+    daily
+    .with_columns(too_hot=(pl.col("temp_c") > pl.col("hot_limit")).fill_null(False))
+    .collect()
+    .lazy()
+)
+daily.sink_parquet("daily_climate.parquet")
+
+hot = daily.filter(pl.col("too_hot")).drop("hot_limit")
+(
+    hot
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("hot_days.csv")
+)
+
+co2_days = (
+    log
+    .filter(pl.col("co2_ppm").is_not_null())
+    .drop_nulls("house")
+    .group_by("house")
+    .agg(pl.col("day").drop_nulls().n_unique().cast(pl.Int64))
+    .sort("house")
+)
+print(co2_days.collect())
+print(pl.concat([
+    daily.select(pl.lit("count").alias("index"), pl.selectors.numeric().count().cast(pl.Float64)),
+    daily.select(pl.lit("mean").alias("index"), pl.selectors.numeric().mean()),
+    daily.select(pl.lit("std").alias("index"), pl.selectors.numeric().std()),
+    daily.select(pl.lit("min").alias("index"), pl.selectors.numeric().min().cast(pl.Float64)),
+    daily.select(pl.lit("25%").alias("index"), pl.selectors.numeric().quantile(0.25, "linear")),
+    daily.select(pl.lit("50%").alias("index"), pl.selectors.numeric().quantile(0.5, "linear")),
+    daily.select(pl.lit("75%").alias("index"), pl.selectors.numeric().quantile(0.75, "linear")),
+    daily.select(pl.lit("max").alias("index"), pl.selectors.numeric().max().cast(pl.Float64)),
+]).collect())

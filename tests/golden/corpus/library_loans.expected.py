@@ -1,0 +1,120 @@
+"""Community library: lateness per member, and loan counts per branch and month.
+
+'returned_on' is typed by volunteers: blanks mean still out, and words like
+'lost' or impossible dates are treated as unknown.
+"""
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+
+def load_loans(path):
+    loans = pl.scan_csv(path, null_values=PANDAS_NA_VALUES, infer_schema_length=None)
+    loans = loans.with_columns(
+        borrowed_on=pl.col("borrowed_on").str.to_datetime("%Y-%m-%d"),
+    )
+    loans = loans.with_columns(due_on=pl.col("due_on").str.to_datetime("%Y-%m-%d"))
+    loans = loans.with_columns(
+        returned_on=pl.col("returned_on").str.to_datetime("%Y-%m-%d", strict=False),
+    )
+    return loans
+
+
+def flag_loans(loans):
+    loans = loans.with_columns(still_out=pl.col("returned_on").is_null())
+    loans = loans.with_columns(
+        late=(pl.col("returned_on") > pl.col("due_on")).fill_null(False),
+    )
+    loans = loans.with_columns(year=pl.col("borrowed_on").dt.year())
+    loans = loans.with_columns(month=pl.col("borrowed_on").dt.month())
+    loans = loans.with_columns(branch=pl.col("branch").str.to_lowercase())
+    return loans
+
+
+def main():
+    loans = flag_loans(load_loans("data/loans.csv")).collect().lazy()
+    members = (
+        pl.scan_csv("data/members.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
+        .with_columns(pl.col("joined_on").str.to_datetime(time_unit="us"))
+        .collect()
+        .lazy()
+    )
+
+    joined = (
+        loans
+        .rename(
+            lambda c, other=members.collect_schema().names(): c + "_x" if c in other and c not in ("member_id",) else c,
+        )
+        .join(
+            members.rename(lambda c, other=loans.collect_schema().names(): c + "_y" if c in other and c not in ("member_no",) else c),
+            left_on="member_id",
+            right_on="member_no",
+            how="inner",
+            coalesce=False,
+            nulls_equal=True,
+            maintain_order="left_right",
+        )
+    )
+    print(
+        loans.select(pl.len()).collect().item(),
+        joined.select(pl.len()).collect().item(),
+    )
+
+    by_member = (
+        joined
+        .drop_nulls(["member_no", "full_name", "member_type"])
+        .group_by(["member_no", "full_name", "member_type"])
+        .agg(
+            pl.col("loan_id").count().cast(pl.Int64).alias("loans"),
+            pl.col("late").sum().alias("late"),
+            pl.col("still_out").sum().alias("still_out"),
+            pl.col("returned_on").max().alias("last_return"),
+        )
+        .sort(["member_no", "full_name", "member_type"])
+    )
+    by_member = (
+        by_member
+        .sort(
+            ["member_type", "last_return"],
+            descending=[False, True],
+            nulls_last=False,
+            maintain_order=True,
+        )
+        .collect()
+        .lazy()
+    )
+    by_member.with_columns(PANDAS_CSV_DATETIMES).sink_csv("member_lateness.csv")
+    print(by_member.head(8).collect())
+
+    per_branch = (
+        loans
+        .drop_nulls(["branch", "year", "month"])
+        .group_by(["branch", "year", "month"])
+        .agg(pl.len().cast(pl.Int64).alias("size"))
+        .sort(["branch", "year", "month"])
+    )
+    per_branch.with_columns(PANDAS_CSV_DATETIMES).sink_csv("branch_month_loans.csv")
+
+    # TODO(porter): series.isin: isin with a Series or a frame
+    # TODO(porter): frame.getitem.column: a key of this kind (~loans.select(pl.col("member_id")).collect().to_series().to_pandas().isin(members.select(pl.col("memb…
+    unknown_members = loans.collect().to_pandas()[~loans.select(pl.col("member_id")).collect().to_series().to_pandas().isin(members.select(pl.col("member_no")).collect().to_series().to_pandas())]
+    unknown_members[["loan_id", "member_id", "borrowed_on"]].to_csv("unknown_members.csv", index=False)
+    print(len(unknown_members))
+
+
+if __name__ == "__main__":
+    main()

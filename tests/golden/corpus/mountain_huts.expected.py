@@ -1,0 +1,110 @@
+"""Mountain hut network: guest-nights per hut over the summer season, a hut-by-month grid,
+and half-board stays that have not been paid yet.
+
+Bookings come from the reservation system as Parquet; the hut register is a CSV
+where the unguarded bivouac shelters have 0 beds.
+"""
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+stays = pl.scan_parquet("data/stays.parquet").with_columns(
+    pl.col(pl.Float32, pl.Float64).fill_nan(None),
+)
+huts = pl.scan_csv(
+    "data/huts.csv",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
+)
+print(stays.collect_schema())
+
+stays = (
+    stays
+    .with_columns(
+        year=pl.col("arrival").dt.year(),
+        month=pl.col("arrival").dt.month(),
+        guest_nights=pl.col("guests") * pl.col("nights"),
+    )
+    .collect()
+    .lazy()
+)
+
+per_hut = (
+    stays
+    .drop_nulls("hut")
+    .group_by("hut")
+    .agg(
+        pl.col("guest_nights").sum().alias("sum"),
+        pl.col("guest_nights").mean().alias("mean"),
+    )
+    .sort("hut")
+    .rename({"sum": "guest_nights", "mean": "avg_per_stay"})
+    .rename(
+        lambda c, other=huts.collect_schema().names(): c + "_x" if c in other and c not in ("hut",) else c,
+    )
+    .join(
+        huts.rename(lambda c, other=stays.drop_nulls("hut").group_by("hut").agg(pl.col("guest_nights").sum().alias("sum"), pl.col("guest_nights").mean().alias("mean")).sort("hut").rename({"sum": "guest_nights", "mean": "avg_per_stay"}).collect_schema().names(): c + "_y" if c in other and c not in ("hut",) else c),
+        on="hut",
+        how="left",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+    .with_columns(
+        nights_per_bed=(pl.col("guest_nights") / pl.col("beds")).fill_nan(None).round(1),
+    )
+    .drop("warden")
+    .sort("guest_nights", descending=True, nulls_last=True, maintain_order=True)
+    .collect()
+    .lazy()
+)
+per_hut.sink_parquet("hut_summary.parquet")
+print(per_hut.collect())
+
+# the accountant wants a wide grid, one column per month
+# TODO(porter): frame.pivot_table: LazyFrame.pivot(on, on_columns=[...], index, values, aggregate_function) with the columns listed, then sort the rows
+grid = stays.collect().to_pandas().pivot_table(
+    index="hut",
+    columns="month",
+    values="guest_nights",
+    aggfunc="sum",
+    fill_value=0,
+)
+grid.reset_index().to_csv("hut_month_grid.csv", index=False)
+
+unpaid = (
+    stays
+    .filter(pl.col("paid_eur").is_null() & pl.col("half_board"))
+    .rename(
+        lambda c, other=huts.select("hut", "warden").collect_schema().names(): c + "_x" if c in other and c not in ("hut",) else c,
+    )
+    .join(
+        huts.select("hut", "warden").rename(lambda c, other=stays.filter(pl.col("paid_eur").is_null() & pl.col("half_board")).collect_schema().names(): c + "_y" if c in other and c not in ("hut",) else c),
+        on="hut",
+        how="left",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+    .sort(["arrival", "stay_id"], nulls_last=True, maintain_order=True)
+    .select("stay_id", "hut", "warden", "arrival", "guests", "nights")
+    .collect()
+    .lazy()
+)
+unpaid.with_columns(PANDAS_CSV_DATETIMES).sink_csv("unpaid_half_board.csv")
+print(
+    unpaid.select(pl.len()).collect().item(),
+    round(stays.select(pl.col("paid_eur").sum()).collect().item(), 2),
+)

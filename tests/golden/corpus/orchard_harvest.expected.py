@@ -1,0 +1,113 @@
+"""Orchard co-op: premium (grade A) apple intake per grower, and revenue per month and grade.
+
+The weigh-bridge log is keyed by hand, so varieties and grades arrive with
+stray spaces and mixed case; a dash in the kg column means the scale failed.
+"""
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+GRADE_PRICES = pl.LazyFrame(
+    {"grade": ["A", "B", "C"], "price_per_kg": [1.35, 0.9, 0.4]},
+    strict=False,
+)
+
+weighings = pl.scan_csv("data/weighings.csv", null_values=PANDAS_NA_VALUES + ["-"], infer_schema_length=None).with_columns(
+    pl.col("pick_date").str.to_datetime(time_unit="us"),
+)
+growers = pl.scan_csv(
+    "data/growers.csv",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
+)
+print(weighings.select(pl.len()).collect().item())
+
+clean = (
+    weighings
+    .with_columns(
+        variety=pl.col("variety").str.strip_chars().str.to_lowercase(),
+        grade=pl.col("grade").str.strip_chars().str.to_uppercase(),
+        month=pl.col("pick_date").dt.month(),
+    )
+    .drop_nulls(["kg", "grade"])
+)
+
+premium = (
+    clean
+    .filter((pl.col("kg") > 10) & (pl.col("grade") == "A"))
+    .drop_nulls(["grower_code", "variety"])
+    .group_by(["grower_code", "variety"])
+    .agg(
+        pl.col("kg").sum().alias("total_kg"),
+        pl.col("crate_count").sum().alias("crates"),
+        pl.col("weigh_id").count().cast(pl.Int64).alias("weighings"),
+    )
+    .sort(["grower_code", "variety"])
+    .rename(
+        lambda c, other=growers.collect_schema().names(): c + "_x" if c in other and c not in ("grower_code",) else c,
+    )
+    .join(
+        growers.rename(lambda c, other=clean.filter((pl.col("kg") > 10) & (pl.col("grade") == "A")).drop_nulls(["grower_code", "variety"]).group_by(["grower_code", "variety"]).agg(pl.col("kg").sum().alias("total_kg"), pl.col("crate_count").sum().alias("crates"), pl.col("weigh_id").count().cast(pl.Int64).alias("weighings")).sort(["grower_code", "variety"]).collect_schema().names(): c + "_y" if c in other and c not in ("grower_code",) else c),
+        on="grower_code",
+        how="left",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+    .with_columns(
+        kg_per_ha=(pl.col("total_kg") / pl.col("hectares")).fill_nan(None).round(2),
+    )
+    .sort(
+        ["total_kg", "grower_code"],
+        descending=[True, False],
+        nulls_last=True,
+        maintain_order=True,
+    )
+    .collect()
+    .lazy()
+)
+premium.with_columns(PANDAS_CSV_DATETIMES).sink_csv("premium_by_grower.csv")
+print(premium.head(5).collect())
+
+monthly = (
+    clean
+    .rename(
+        lambda c, other=GRADE_PRICES.collect_schema().names(): c + "_x" if c in other and c not in ("grade",) else c,
+    )
+    .join(
+        GRADE_PRICES.rename(lambda c, other=clean.collect_schema().names(): c + "_y" if c in other and c not in ("grade",) else c),
+        on="grade",
+        how="left",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+    .with_columns(revenue=pl.col("kg") * pl.col("price_per_kg"))
+    .drop_nulls(["month", "grade"])
+    .group_by(["month", "grade"])
+    .agg(
+        pl.col("kg").sum().alias("kg"),
+        pl.col("revenue").sum().alias("revenue"),
+        pl.col("grower_code").drop_nulls().n_unique().cast(pl.Int64).alias("growers"),
+    )
+    .sort(["month", "grade"])
+    .with_columns(pl.selectors.float().round(2))
+    .collect()
+    .lazy()
+)
+monthly.with_columns(PANDAS_CSV_DATETIMES).sink_csv("monthly_revenue.csv")
+
+total = monthly.select(pl.col("revenue").sum()).collect().item()
+print(f"season revenue: {total:.2f}")

@@ -1,0 +1,32 @@
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+huts = pl.scan_csv(
+    "huts.csv",
+    separator=";",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
+)
+beds = pl.LazyFrame(
+    {"hut": ["Alder", "Birch", "Cedar"], "beds": [12, 8, 20]},
+    strict=False,
+)
+joined = (
+    huts
+    .rename(
+        lambda c, other=beds.collect_schema().names(): c + "_x" if c in other and c not in ("hut",) else c,
+    )
+    .join(
+        beds.rename(lambda c, other=huts.collect_schema().names(): c + "_y" if c in other and c not in ("hut",) else c),
+        on="hut",
+        how="left",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+)
+joined.sink_csv("huts_with_beds.csv")

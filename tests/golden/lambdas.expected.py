@@ -1,0 +1,26 @@
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+GRADES = {"A": "premium", "B": "standard"}
+
+batches = pl.scan_csv(
+    "batches.csv",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
+)
+batches = batches.with_columns(code=pl.col("code").str.strip_chars().str.to_uppercase())
+batches = batches.with_columns(
+    grade_name=pl.col("grade").replace_strict(GRADES, default=None),
+)
+batches = batches.with_columns(
+    size=pl.when(pl.col("litres") >= 100).then(pl.lit("large")).otherwise(pl.lit("small")),
+)
+batches = batches.with_columns(
+    tier=pl.col("grade").replace_strict(GRADES, default=pl.lit("unknown")),
+)
+batches.sink_csv("batches_named.csv")

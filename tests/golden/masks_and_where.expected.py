@@ -1,0 +1,22 @@
+import numpy as np
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+hives = pl.scan_csv("hives.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
+# a hive is strong when it is heavy and calm
+strong = ((pl.col("weight_kg") > 40) & ~(pl.col("temper") == "aggressive").fill_null(False)).fill_null(
+    False,
+)
+hives = hives.with_columns(
+    label=pl.when(strong).then(pl.lit("strong")).otherwise(pl.lit("watch")),
+)
+hives = hives.with_columns(
+    label=pl.when(pl.col("weight_kg").is_null()).then(pl.lit("unweighed")).otherwise(pl.col("label")),
+)
+watch = hives.filter(pl.col("label").ne_missing(pl.lit("strong")))
+watch.sink_csv("watch_list.csv")

@@ -1,0 +1,15 @@
+"""Seed bank germination summary written against modin's pandas API."""
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+trays = pl.scan_csv("trays.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None).select(
+    pl.col("^(tray|species|sown|sprouted)$"),
+)
+trays = trays.with_columns(rate=(pl.col("sprouted") / pl.col("sown")).fill_nan(None))
+best = trays.sort("rate", descending=True, nulls_last=True, maintain_order=True).head(3)
+best.sink_csv("best_trays.csv")

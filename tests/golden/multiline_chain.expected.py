@@ -1,0 +1,21 @@
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+orders = (
+    pl.scan_csv("orders.csv", null_values=PANDAS_NA_VALUES, schema_overrides={"shop": pl.String}, infer_schema_length=None)
+    .with_columns(total=pl.col("units") * pl.col("price"))
+    .filter(pl.col("units") > 0)
+)
+
+# the ten biggest orders
+top = (
+    orders
+    .sort("total", descending=True, nulls_last=True, maintain_order=True)
+    .head(10)
+)
+top.select("shop", "units", "total").sink_csv("top_orders.csv")

@@ -1,0 +1,25 @@
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+deliveries = pl.scan_csv(
+    "data/deliveries.csv",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
+)
+deliveries = deliveries.with_columns(
+    kg_per_tree=(pl.col("kg") / pl.col("trees")).fill_nan(None),
+)
+good = deliveries.filter(pl.col("grade").ne_missing(pl.lit("reject")))
+totals = (
+    good
+    .drop_nulls("orchard")
+    .group_by("orchard")
+    .agg(pl.col("kg").sum())
+    .sort("orchard")
+)
+totals.sink_csv("totals.csv")

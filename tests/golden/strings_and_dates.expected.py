@@ -1,0 +1,31 @@
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+visits = pl.scan_csv(
+    "visits.csv",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
+)
+visits = visits.with_columns(name=pl.col("name").str.strip_chars().str.to_titlecase())
+visits = visits.with_columns(
+    day=pl.col("day").str.to_datetime("%Y-%m-%d", strict=False),
+)
+visits = visits.with_columns(weekday=pl.col("day").dt.weekday() - 1)
+long_names = visits.filter(pl.col("name").str.len_chars().cast(pl.Int64) > 10)
+weekend = visits.filter(pl.col("weekday") >= 5)
+weekend.with_columns(PANDAS_CSV_DATETIMES).sink_csv("weekend_visits.csv")

@@ -1,0 +1,25 @@
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+cheeses = pl.scan_csv(
+    "cheeses.csv",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
+)
+cheeses = cheeses.with_columns(age_weeks=pl.col("age_days") // 7)
+# TODO(porter): frame.pivot_table: LazyFrame.pivot(on, on_columns=[...], index, values, aggregate_function) with the columns listed, then sort the rows
+pivot = cheeses.collect().to_pandas().pivot_table(
+    index="cellar",
+    columns="kind",
+    values="weight",
+    aggfunc="sum",
+)
+pivot.to_csv("cellar_pivot.csv")
+# TODO(porter): frame.iterrows: row loops have no lazy form: express the loop body as column expressions, or collect and use iter_rows(named=True)
+for _, row in cheeses.collect().to_pandas().iterrows():
+    print(row["name"])

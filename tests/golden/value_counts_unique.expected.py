@@ -1,0 +1,42 @@
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+loans = (
+    pl.scan_csv("loans.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
+    .collect()
+    .lazy()
+)
+popular = (
+    loans
+    .select(pl.col("title"))
+    .drop_nulls()
+    .group_by("title", maintain_order=True)
+    .agg(pl.len().cast(pl.Int64).alias("count"))
+    .sort("count", descending=True, maintain_order=True)
+    .head(5)
+)
+print(popular.collect())
+branches = (
+    loans
+    .select(pl.col("branch").unique(maintain_order=True))
+    .collect()
+    .to_series()
+)
+print(
+    len(branches),
+    loans.select(pl.col("member").drop_nulls().n_unique().cast(pl.Int64)).collect().item(),
+)
+per_branch = (
+    loans
+    .drop_nulls("branch")
+    .group_by("branch")
+    .agg(pl.len().cast(pl.Int64).alias("size"))
+    .sort("branch")
+    .select(pl.col("branch"), pl.col("size").alias("loans"))
+)
+per_branch.sink_csv("per_branch.csv")

@@ -1,0 +1,251 @@
+"""Rule cases and differential checks for porter/rules/groupby.py (groupby + aggregations, agg
+spellings, series reductions, value_counts, unique, describe).
+
+pandas is the reference implementation: every differential check runs the snippet with pandas
+and its conversion with Polars and compares what they computed (pandas' index becomes columns).
+"""
+
+from __future__ import annotations
+
+import pandas as pd
+import pytest
+
+from rule_checks import check_ports, check_todo, check_unchanged
+from support import assert_same_table, convert, differential, run
+
+# None and NaN keys, NaN values, a group whose values are all missing (c), ties in counts,
+# unicode keys and text.
+FRAME = """\
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({
+    "shop": ["b", "a", None, "b", "a", "c", np.nan, "Éclair", "c"],
+    "qty": [1.0, np.nan, 3.0, 4.0, 5.0, np.nan, 2.0, 2.0, None],
+    "n": [1, 2, 3, 4, 5, 6, 7, 8, 8],
+    "t": ["x", "y", "z", None, "y", "ünï", "w", "v", "x"],
+})
+"""
+
+AGGREGATIONS = ["sum", "mean", "median", "min", "max", "std", "var", "count", "nunique",
+                "first", "last", "size"]
+
+# -- ports ----------------------------------------------------------------------------------
+
+PORTS = [
+    pytest.param('r = df.groupby("shop")["qty"].sum()',
+                 'df.drop_nulls("shop").group_by("shop").agg(pl.col("qty").sum()).sort("shop")',
+                 id="missing keys dropped and keys sorted"),
+    pytest.param('r = df.groupby("shop", sort=False)["qty"].sum()', 'group_by("shop", maintain_order=True)',
+                 id="sort=False keeps first appearance"),
+    pytest.param('r = df.groupby("shop", dropna=False)["qty"].sum()', '.sort("shop", nulls_last=True)',
+                 id="dropna=False keeps the missing key last"),
+    pytest.param('r = df.groupby("shop")["qty"].nunique()', 'pl.col("qty").drop_nulls().n_unique()',
+                 id="nunique skips missing"),
+    pytest.param('r = df.groupby("shop")["t"].first()', 'pl.col("t").first(ignore_nulls=True)',
+                 id="first skips missing"),
+    pytest.param('r = df.groupby("shop")["qty"].count()', 'pl.col("qty").count().cast(pl.Int64)', id="count"),
+    pytest.param('r = df.groupby("shop").size()', 'pl.len().cast(pl.Int64).alias("size")', id="size"),
+    pytest.param('r = df.groupby("shop").agg(total=("qty", "sum"))', 'pl.col("qty").sum().alias("total")',
+                 id="named aggregation"),
+    pytest.param('r = df.groupby("shop").agg({"qty": ["sum", "max"], "n": "min"})',
+                 'pl.col("n").min().alias("n_min")', id="dict of lists flattened to column_function"),
+    pytest.param('r = df.groupby("shop")["qty"].agg(sum)',
+                 'pl.when(pl.col("qty").null_count() == 0).then(pl.col("qty").sum())',
+                 id="builtin sum is NaN when a value is missing"),
+    pytest.param('r = df.groupby("shop")["qty"].agg(max)',
+                 'pl.when(pl.col("qty").first().is_not_null()).then(pl.col("qty").max())',
+                 id="builtin max keeps a leading NaN"),
+    pytest.param('r = df.groupby("shop").t.sum()', 'pl.col("t").str.join("")', id="text sum concatenates"),
+    pytest.param('r = df["shop"].value_counts()', '.group_by("shop", maintain_order=True)',
+                 id="value_counts ties in order of appearance"),
+    pytest.param("r = df.describe()", 'quantile(0.25, "linear")', id="describe linear percentiles"),
+]
+
+
+@pytest.mark.parametrize("before, expected", PORTS)
+def test_ports(before: str, expected: str) -> None:
+    check_ports(FRAME + before + "\n", expected)
+
+
+TODOS = [
+    pytest.param('r = df.groupby("shop")["qty"].agg(lambda s: s.max() - s.min())', "groupby.agg",
+                 id="agg with a lambda"),
+    pytest.param('r = df.groupby("shop")["qty"].transform("sum")', "groupby.transform", id="transform"),
+    pytest.param('r = df.groupby("shop").agg(["min", "max"])', "groupby.agg",
+                 id="list of functions over several columns"),
+    pytest.param('r = df.groupby("shop")["qty"].sum(min_count=1)', "groupby.sum", id="min_count"),
+    pytest.param('r = df["qty"].sum(skipna=False)', "series.sum", id="skipna=False"),
+    pytest.param('r = df.groupby("shop")["qty"].apply(lambda s: s.max())', "groupby.apply", id="apply"),
+    pytest.param('r = df.groupby("shop").sum(numeric_only=True)', "groupby.sum", id="numeric_only"),
+    pytest.param('r = df[["t"]].describe()', "frame.describe", id="describe without numbers"),
+]
+
+
+@pytest.mark.parametrize("before, key", TODOS)
+def test_todo(before: str, key: str) -> None:
+    check_todo(FRAME + before + "\n", key)
+
+
+UNCHANGED = [
+    pytest.param("import itertools\ngroups = itertools.groupby([1, 1, 2])\n", id="itertools groupby"),
+    pytest.param("import collections\nc = collections.Counter('aab')\nx = c.most_common(1)\n", id="Counter"),
+    pytest.param("xs = [3, 1]\ntotal = sum(xs)\nbig = max(xs)\n", id="builtin reductions on lists"),
+    pytest.param("class Ledger:\n    def groupby(self, key):\n        return self\n"
+                 "    def sum(self):\n        return 0\n"
+                 "x = Ledger().groupby('k').sum()\n", id="groupby of another class"),
+]
+
+
+@pytest.mark.parametrize("before", UNCHANGED)
+def test_unchanged(before: str) -> None:
+    check_unchanged("import pandas as pd\n" + before)
+
+
+# -- differential ---------------------------------------------------------------------------
+
+@pytest.mark.parametrize("how", AGGREGATIONS)
+def test_series_groupby_aggregation(how: str) -> None:
+    differential(FRAME + f'result = df.groupby("shop")["qty"].{how}()\n')
+
+
+@pytest.mark.parametrize("how", AGGREGATIONS)
+def test_frame_groupby_aggregation(how: str) -> None:
+    differential(FRAME + f'result = df.groupby("shop")[["qty", "n"]].{how}()\n')
+
+
+@pytest.mark.parametrize("how", ["nunique", "first", "last", "count", "min", "max"])
+def test_text_groupby_aggregation(how: str) -> None:
+    differential(FRAME + f'result = df.groupby("shop")["t"].{how}()\n')
+
+
+GROUPINGS = [
+    pytest.param('df.groupby("shop", sort=False)["qty"].sum()', id="sort=False"),
+    pytest.param('df.groupby("shop", as_index=False)["qty"].sum()', id="as_index=False"),
+    pytest.param('df.groupby("shop", dropna=False)["qty"].sum()', id="dropna=False None and NaN keys"),
+    pytest.param('df.groupby("shop", dropna=False, sort=False)["qty"].mean()', id="dropna=False sort=False"),
+    pytest.param('df.groupby("shop", as_index=False).size()', id="as_index=False size"),
+    pytest.param('df.groupby("shop", as_index=False)["qty"].count()', id="as_index=False count"),
+    pytest.param('df.groupby(["shop", "t"])["qty"].sum()', id="two keys"),
+    pytest.param('df.groupby(["shop", "n"], dropna=False)["qty"].sum()', id="two keys dropna=False"),
+    pytest.param('df.groupby(["shop", "n"], sort=False).size()', id="two keys sort=False size"),
+    pytest.param('df.groupby("n", sort=False)["qty"].sum()', id="int key duplicates"),
+    pytest.param('df.groupby(df["shop"])["qty"].sum()', id="key given as a column"),
+    pytest.param('df.groupby("shop").qty.count()', id="attribute selection"),
+    pytest.param('df.groupby("shop").sum()', id="sum concatenates text"),
+    pytest.param('df.groupby("shop").count()', id="frame count"),
+    pytest.param('df.groupby("shop").nunique()', id="frame nunique"),
+    pytest.param('df.groupby("shop").first()', id="frame first"),
+    pytest.param('df.groupby("shop")["qty"].std(ddof=0)', id="std ddof=0"),
+    pytest.param('df.groupby("shop")["qty"].var(ddof=0)', id="var ddof=0"),
+    pytest.param('df.groupby("shop").agg(total=("qty", "sum"), m=("n", "max"))', id="agg named"),
+    pytest.param('df.groupby("shop").agg(c=("qty", "count"), s=("qty", "size"), u=("t", "nunique"))',
+                 id="agg named counts"),
+    pytest.param('df.groupby("shop").agg(f=("t", "first"), l=("t", "last"))', id="agg named first last"),
+    pytest.param('df.groupby("shop", as_index=False).agg(total=("qty", "sum"))', id="agg named as_index=False"),
+    pytest.param('df.groupby("shop").agg({"qty": "sum", "n": "mean"})', id="agg dict"),
+    pytest.param('df.groupby("shop", sort=False).agg({"qty": "mean"})', id="agg dict sort=False"),
+    pytest.param('df.groupby("shop")["qty"].agg(["sum", "mean"])', id="agg list"),
+    pytest.param('df.groupby("shop")["qty"].agg(["std", "var", "size"])', id="agg list with size"),
+    pytest.param('df.groupby("shop")["qty"].agg("sum")', id="agg string"),
+    pytest.param('df.groupby("shop")["qty"].agg("median")', id="agg string median"),
+    pytest.param('df.groupby("shop").agg("sum")', id="frame agg string"),
+    pytest.param('df.groupby("shop")[["qty", "n"]].agg("max")', id="selection agg string"),
+    pytest.param('df.groupby("shop")["qty"].agg(np.sum)', id="agg numpy sum"),
+    pytest.param('df.groupby("shop")["qty"].agg(sum)', id="agg builtin sum"),
+    pytest.param('df.groupby("shop")["qty"].agg(max)', id="agg builtin max"),
+    pytest.param('df.groupby("shop")["qty"].agg(min)', id="agg builtin min"),
+    pytest.param('df.groupby("shop")["qty"].agg(len)', id="agg builtin len"),
+    pytest.param('df.groupby("shop")[["qty", "n"]].agg(max)', id="frame agg builtin max"),
+    pytest.param('df.groupby("shop").qty.agg(total="sum", most="max")', id="series named agg"),
+    pytest.param('df.groupby("shop")["qty"].sum().sort_values(ascending=False, kind="stable")',
+                 id="sorted aggregate"),
+]
+
+
+@pytest.mark.parametrize("expr", GROUPINGS)
+def test_grouping_matches_pandas(expr: str) -> None:
+    differential(FRAME + f"result = {expr}\n")
+
+
+def test_groupby_held_in_a_variable() -> None:
+    differential(FRAME + 'g = df.groupby("shop")\nresult = g["qty"].sum()\nnamed = g.agg(total=("qty", "sum"))\n',
+                 "result", "named")
+
+
+SCALARS = [
+    pytest.param('df["qty"].sum()', id="sum"),
+    pytest.param('df["qty"].mean()', id="mean"),
+    pytest.param('df["qty"].median()', id="median"),
+    pytest.param('df["qty"].min()', id="min"),
+    pytest.param('df["qty"].max()', id="max"),
+    pytest.param('df["qty"].std()', id="std"),
+    pytest.param('df["qty"].var()', id="var"),
+    pytest.param('df["qty"].std(ddof=0)', id="std ddof=0"),
+    pytest.param('df["qty"].count()', id="count"),
+    pytest.param('df["shop"].nunique()', id="nunique text"),
+    pytest.param('df["qty"].nunique()', id="nunique numbers"),
+    pytest.param('df["n"].sum()', id="int sum"),
+    pytest.param('df["n"].mean()', id="int mean"),
+    pytest.param('df["t"].min()', id="text min skips None"),
+    pytest.param('df["t"].max()', id="text max unicode"),
+    pytest.param('(df["qty"] > 1).sum()', id="sum of a comparison with NaN"),
+    pytest.param('(df["qty"] > 1).mean()', id="mean of a comparison with NaN"),
+    pytest.param('df[df["n"] > 100]["qty"].sum()', id="sum of empty"),
+    pytest.param('df[df["n"] > 100]["qty"].count()', id="count of empty"),
+]
+
+
+@pytest.mark.parametrize("expr", SCALARS)
+def test_series_reduction_matches_pandas(expr: str) -> None:
+    differential(FRAME + f"result = {expr}\n")
+
+
+COUNTS = [
+    pytest.param('df["shop"].value_counts()', id="value_counts ties and missing"),
+    pytest.param('df["n"].value_counts()', id="value_counts ints"),
+    pytest.param('df["qty"].value_counts()', id="value_counts floats with NaN"),
+    pytest.param('df["t"].value_counts(normalize=True)', id="value_counts normalize"),
+    pytest.param('df["shop"].value_counts(dropna=False)', id="value_counts dropna=False"),
+    pytest.param('df["shop"].value_counts(ascending=True)', id="value_counts ascending"),
+    pytest.param('df["shop"].value_counts(sort=False)', id="value_counts sort=False"),
+    pytest.param('df[df["n"] > 100]["shop"].value_counts()', id="value_counts empty"),
+]
+
+
+@pytest.mark.parametrize("expr", COUNTS)
+def test_value_counts_matches_pandas(expr: str) -> None:
+    differential(FRAME + f"result = {expr}\n")
+
+
+@pytest.mark.parametrize("column", ["shop", "qty", "t"])
+def test_unique_in_order_of_appearance(column: str) -> None:
+    # pandas gives an array with nan for missing; Polars a Series with None.
+    source = FRAME + f'result = list(df["{column}"].unique())\n'
+    expected = [None if pd.isna(v) else v for v in run(source)["result"]]
+    actual = list(run(convert(source).converted_text)["result"])
+    assert actual == expected
+
+
+def test_empty_frame_groupby() -> None:
+    differential(FRAME + 'none = df[df["n"] > 100]\nresult = none.groupby("shop")["qty"].sum()\n'
+                 'mean = none["qty"].mean()\n', "result", "mean")
+
+
+@pytest.mark.parametrize("select", ["df", 'df[["qty", "n"]]', 'df.assign(ok=df["n"] > 4)'])
+def test_describe_matches_pandas(select: str) -> None:
+    # pandas keeps the statistic names in an unnamed index; porter writes them as a column
+    # named "index", as pandas' reset_index() names it.
+    source = FRAME + f"result = {select}.describe()\n"
+    expected = run(source)["result"].rename_axis("index")
+    actual = run(convert(source).converted_text)["result"]
+    assert_same_table(expected, actual)
+
+
+def test_describe_then_reset_index() -> None:
+    differential(FRAME + 'result = df[["qty", "n"]].describe().reset_index()\n')
+
+
+def test_dict_of_lists_lowers_confidence() -> None:
+    result = convert(FRAME + 'r = df.groupby("shop").agg({"qty": ["sum", "max"], "n": "min"})\n')
+    site = next(s for s in result.sites if s.key == "groupby.agg")
+    assert site.confidence <= 0.9 and "MultiIndex" in site.message

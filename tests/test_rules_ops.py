@@ -1,0 +1,202 @@
+"""Rule cases and differential checks for porter/rules/ops.py (arithmetic, comparisons, & | ^ ~,
+round, abs, clip, np.where).
+
+pandas is the reference implementation: every differential check runs the snippet with pandas
+and its conversion with Polars and compares what they computed.
+"""
+
+from __future__ import annotations
+
+import pytest
+
+from rule_checks import check_ports, check_todo, check_unchanged
+from support import convert, differential
+
+# Zeros in both numerator and divisor, NaN and None together, negative numbers, booleans,
+# unicode text.
+FRAME = """\
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({
+    "a": [0.0, 1.0, -7.5, np.nan, None, 2.0],
+    "b": [0.0, 0.0, 2.0, 1.0, 3.0, -2.0],
+    "i": [0, 7, -7, 3, 5, 2],
+    "j": [0, 0, 2, 2, -3, 0],
+    "p": [True, False, True, False, True, False],
+    "q": [True, True, False, False, True, False],
+    "s": ["x", None, "Éclair", "ünï", "x", "y"],
+})
+"""
+
+# -- ports ----------------------------------------------------------------------------------
+
+PORTS = [
+    pytest.param('df["r"] = df["a"] / df["b"]', '(pl.col("a") / pl.col("b")).fill_nan(None)',
+                 id="0/0 made missing"),
+    pytest.param('df["r"] = df["a"] / 2', 'r=pl.col("a") / 2)', id="division by a nonzero constant"),
+    pytest.param('df["r"] = df["i"] // df["j"]', '(pl.col("i") / pl.col("j")).floor().fill_nan(None)',
+                 id="floor division by a column"),
+    pytest.param('df["r"] = df["i"] // 2', 'pl.col("i") // 2', id="floor division by a constant"),
+    pytest.param('df["r"] = df["i"] % df["j"]', 'pl.when(pl.col("j") != 0).then(pl.col("i") % pl.col("j"))',
+                 id="modulo guarded against zero"),
+    pytest.param('df["r"] = df["i"] % 0', 'pl.lit(None, dtype=pl.Float64)', id="modulo by zero is all missing"),
+    pytest.param('df["r"] = df["p"] + df["q"]', 'pl.col("p") | pl.col("q")', id="bool plus bool is or"),
+    pytest.param('df["r"] = -df["p"]', '~pl.col("p")', id="minus bool is not"),
+    pytest.param('df["r"] = df["i"] / df["j"] * 0', '* 0).fill_nan(None)', id="inf times zero made missing"),
+    pytest.param('df["r"] = "<" + df["s"]', 'pl.lit("<") + pl.col("s")', id="text literal on the left"),
+    pytest.param('df["r"] = df["a"] != 1', 'pl.col("a").ne_missing(1)', id="!= with a constant"),
+    pytest.param('df["r"] = df["a"] != df["b"]', '(pl.col("a") != pl.col("b")).fill_null(True)',
+                 id="!= of two columns"),
+    pytest.param('df["r"] = ~(df["a"] > 0)', '~(pl.col("a") > 0).fill_null(False)', id="~ fills first"),
+    pytest.param('df["r"] = (df["a"] > 0) ^ (df["b"] > 0)',
+                 '(pl.col("a") > 0).fill_null(False) ^ (pl.col("b") > 0).fill_null(False)', id="xor fills first"),
+    pytest.param('df["r"] = df["a"].round(1)', 'pl.col("a").round(1)', id="round"),
+    pytest.param('df["r"] = round(df["a"], 2)', 'pl.col("a").round(2)', id="builtin round"),
+    pytest.param("r = df.round(1)", "pl.selectors.float().round(1)", id="frame round"),
+    pytest.param('df["r"] = abs(df["i"])', 'pl.col("i").abs()', id="builtin abs"),
+    pytest.param('df["r"] = df["i"].clip(0.5, 2.5)', 'pl.col("i").cast(pl.Float64).clip(0.5, 2.5)',
+                 id="int clip with float bounds casts first"),
+    pytest.param('df["r"] = df["i"].clip(lower=1)', 'pl.col("i").clip(1, None)', id="clip lower only"),
+    pytest.param('df["r"] = np.where(df["a"] > 0, "pos", "other")',
+                 'pl.when(pl.col("a") > 0).then(pl.lit("pos")).otherwise(pl.lit("other"))', id="np.where text"),
+]
+
+
+@pytest.mark.parametrize("before, expected", PORTS)
+def test_ports(before: str, expected: str) -> None:
+    check_ports(FRAME + before + "\n", expected)
+
+
+TODOS = [
+    pytest.param('df["r"] = df["a"].round(-1)', "series.round", id="round to tens"),
+    pytest.param('df["r"] = df["a"].clip(df["b"], 5)', "series.clip", id="clip with per-row bounds"),
+    pytest.param('r = df * 2', "frame.arith", id="arithmetic on a whole frame"),
+    pytest.param('r = np.where(df["a"] > 0)', "np.where", id="np.where with one argument"),
+]
+
+
+@pytest.mark.parametrize("before, key", TODOS)
+def test_todo(before: str, key: str) -> None:
+    check_todo(FRAME + before + "\n", key)
+
+
+UNCHANGED = [
+    pytest.param("import numpy as np\nx = np.array([1.0, -2.0])\ny = np.where(x > 0, x, 0)\n",
+                 id="np.where on arrays"),
+    pytest.param("x = 7\ny = x // 2 + x % 3 - abs(-x)\nz = round(2.5)\n", id="plain numbers"),
+    pytest.param("import numpy as np\nx = np.array([1.5, 9.0])\ny = x.clip(0, 2).round(1)\n",
+                 id="numpy clip and round"),
+]
+
+
+@pytest.mark.parametrize("before", UNCHANGED)
+def test_unchanged(before: str) -> None:
+    check_unchanged("import pandas as pd\n" + before)
+
+
+# -- differential ---------------------------------------------------------------------------
+
+COLUMNS = [
+    pytest.param('df["a"] / df["b"]', id="0/0 and x/0"),
+    pytest.param('df["a"] / 0', id="divide by constant zero"),
+    pytest.param('df["i"] / df["j"]', id="int division by zero"),
+    pytest.param('10 / df["i"]', id="constant over a column with zero"),
+    pytest.param('df["i"] // df["j"]', id="int // by zero"),
+    pytest.param('df["i"] % df["j"]', id="int % by zero"),
+    pytest.param('df["a"] // df["b"]', id="float // by zero"),
+    pytest.param('df["a"] % df["b"]', id="float % by zero"),
+    pytest.param('df["i"] // 0', id="// constant zero"),
+    pytest.param('df["i"] % 0', id="% constant zero"),
+    pytest.param('df["i"] // 2', id="// constant with negatives"),
+    pytest.param('df["i"] % -2', id="% negative constant"),
+    pytest.param('df["a"] % -2', id="float % negative constant"),
+    pytest.param('df["i"] / df["j"] * 0', id="inf times zero"),
+    pytest.param('df["a"] / df["b"] - df["a"] / df["b"]', id="inf minus inf"),
+    pytest.param('df["a"] * df["i"] - df["b"]', id="mixed arithmetic with missing"),
+    pytest.param('df["a"] ** 0.5', id="power of negatives"),
+    pytest.param('df["i"] ** 2', id="int power"),
+    pytest.param('1 - df["a"]', id="constant minus column"),
+    pytest.param('-df["a"]', id="negation"),
+    pytest.param('df["p"] + df["q"]', id="bool + bool"),
+    pytest.param('df["p"] + True', id="bool + True"),
+    pytest.param('df["p"] * 2', id="bool times int"),
+    pytest.param('df["p"] + df["i"]', id="bool + int"),
+    pytest.param('-df["p"]', id="minus bool"),
+    pytest.param('df["s"] + "!"', id="text + text literal"),
+    pytest.param('"<" + df["s"]', id="literal + text"),
+    pytest.param('df["s"] + df["s"]', id="text + text with None"),
+    pytest.param('df["a"] > 0', id="> with NaN"),
+    pytest.param('df["a"] == df["b"]', id="== of columns with NaN"),
+    pytest.param('df["a"] != 1', id="!= constant with NaN"),
+    pytest.param('df["a"] != df["b"]', id="!= of columns with NaN"),
+    pytest.param('df["s"] != "x"', id="!= text with None"),
+    pytest.param('df["s"] > "x"', id="text order comparison"),
+    pytest.param('df["a"] > df["a"].mean()', id="comparison with a reduction"),
+    pytest.param('~(df["a"] > 0)', id="~ of a comparison with NaN"),
+    pytest.param('~(df["a"] != 1)', id="~ of != with NaN"),
+    pytest.param('(df["a"] > 0) & (df["b"] > 0)', id="and with NaN"),
+    pytest.param('(df["a"] > 0) | (df["b"] > 0)', id="or with NaN"),
+    pytest.param('(df["a"] > 0) ^ (df["b"] > 0)', id="xor with NaN"),
+    pytest.param('~((df["a"] > 0) | (df["b"] > 0))', id="not of or with NaN"),
+    pytest.param('~((df["a"] > 0) & (df["b"] >= 0))', id="not of and with NaN"),
+    pytest.param('df["p"] & df["q"]', id="and of booleans"),
+    pytest.param('df["p"] ^ df["q"]', id="xor of booleans"),
+    pytest.param('~df["p"]', id="not of booleans"),
+    pytest.param('df["p"] | (df["a"] > 0)', id="bool or comparison"),
+    pytest.param('df["a"].round(1)', id="round"),
+    pytest.param('round(df["a"] / 3, 2)', id="builtin round half even"),
+    pytest.param('df["a"].round()', id="round no digits"),
+    pytest.param('df["a"].abs()', id="abs"),
+    pytest.param('abs(df["i"])', id="builtin abs"),
+    pytest.param('df["i"].clip(0.5, 2.5)', id="int clip float bounds"),
+    pytest.param('df["a"].clip(0, 1)', id="float clip keeps NaN"),
+    pytest.param('df["i"].clip(lower=1)', id="clip lower"),
+    pytest.param('df["i"].clip(upper=2.5)', id="clip upper float"),
+    pytest.param('np.where(df["a"] > 0, "pos", "other")', id="np.where NaN condition"),
+    pytest.param('np.where(df["a"] > 0, df["a"], 0)', id="np.where column branch"),
+    pytest.param('np.where(df["a"].isna(), 0, df["a"])', id="np.where isna"),
+    pytest.param('np.where(df["a"] != 1, 1, 0)', id="np.where !="),
+    pytest.param('np.where(~(df["a"] > 0), 1, 0)', id="np.where negated"),
+    pytest.param('np.where(df["a"] > 0, df["a"] > 1, df["p"])', id="np.where boolean branches"),
+]
+
+
+@pytest.mark.parametrize("expr", COLUMNS)
+def test_column_matches_pandas(expr: str) -> None:
+    differential(FRAME + f'df["r"] = {expr}\nresult = df\n')
+
+
+SCALARS = [
+    pytest.param('(df["a"] / df["b"]).mean()', id="mean skips 0/0"),
+    pytest.param('(df["a"] / df["b"]).sum()', id="sum with inf"),
+    pytest.param('(df["i"] / df["j"] * 0).mean()', id="mean after inf times zero"),
+    pytest.param('int((df["i"] / df["j"] * 0).isna().sum())', id="missing count after inf times zero"),
+    pytest.param('(df["i"] // df["j"]).sum()', id="sum of // by zero"),
+    pytest.param('df["i"].clip(0.5, 2.5).sum()', id="sum of int clip"),
+    pytest.param('int((df["a"] != 1).sum())', id="count of != with NaN"),
+    pytest.param('int((~(df["a"] > 0)).sum())', id="count of ~ with NaN"),
+]
+
+
+@pytest.mark.parametrize("expr", SCALARS)
+def test_scalar_matches_pandas(expr: str) -> None:
+    differential(FRAME + f"result = {expr}\n")
+
+
+def test_frame_round() -> None:
+    differential(FRAME + "result = df.round(1)\n")
+
+
+def test_operations_on_an_empty_frame() -> None:
+    differential(FRAME + """
+none = df[df["i"] > 100]
+none["r"] = (none["a"] / none["b"]).round(1)
+none["m"] = ~(none["a"] > 0) | none["p"]
+result = none
+""")
+
+
+def test_comparison_with_a_date_string_lowers_confidence() -> None:
+    result = convert(FRAME + 'r = df[df["a"] > "2024-01-01"]\n')
+    site = next(s for s in result.sites if s.key == "series.compare")
+    assert site.confidence <= 0.7

@@ -1,0 +1,184 @@
+"""Rule cases and differential checks for porter/rules/rows.py (drop_duplicates, sort_values,
+nlargest/nsmallest, reset_index, isin, between, replace).
+
+pandas is the reference implementation: every differential check runs the snippet with pandas
+and its conversion with Polars and compares what they computed.
+"""
+
+from __future__ import annotations
+
+import pytest
+
+from rule_checks import check_ports, check_todo, check_unchanged
+from support import convert, differential
+
+# Duplicate keys, ties in v, NaN and None together in text and numbers, unicode text.
+FRAME = """\
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({
+    "k": ["b", "a", None, "b", "a", np.nan, "Éclair"],
+    "v": [3.0, 1.0, np.nan, 3.0, None, 2.0, 1.0],
+    "n": [1, 2, 3, 4, 5, 6, 7],
+})
+"""
+
+# -- ports ----------------------------------------------------------------------------------
+
+PORTS = [
+    pytest.param('r = df.drop_duplicates(subset=["k"])', 'df.unique("k", keep="first", maintain_order=True)',
+                 id="drop_duplicates keeps the first in order"),
+    pytest.param('r = df.drop_duplicates(subset="k", keep=False)', 'keep="none"', id="keep=False"),
+    pytest.param('r = df.sort_values("v")', 'df.sort("v", nulls_last=True, maintain_order=True)',
+                 id="nulls last by default"),
+    pytest.param('r = df.sort_values("v", ascending=False)', "descending=True, nulls_last=True",
+                 id="nulls last when descending"),
+    pytest.param('r = df.sort_values(["k", "v"], ascending=[True, False])', "descending=[False, True]",
+                 id="ascending list"),
+    pytest.param('r = df.sort_values("v", na_position="first")', "nulls_last=False", id="na_position first"),
+    pytest.param('r = df.nlargest(3, "v")', 'df.sort("v", descending=True, nulls_last=True, maintain_order=True).head(3)',
+                 id="nlargest keeps ties in order"),
+    pytest.param('r = df.groupby("k")["v"].sum().reset_index()', '.agg(pl.col("v").sum()).sort("k")',
+                 id="reset_index after groupby: keys are columns"),
+    pytest.param("r = df.reset_index()", 'df.with_row_index("index").with_columns(pl.col("index").cast(pl.Int64))',
+                 id="reset_index of fresh labels"),
+    pytest.param('r = df[df.v > 1].reset_index(drop=True)', "r = df.filter(pl.col(\"v\") > 1)\n",
+                 id="reset_index drop after a filter is nothing"),
+    pytest.param('df["r"] = df["k"].isin(["a", None])', 'is_in(["a", None], nulls_equal=True)',
+                 id="None in the list matches missing text"),
+    pytest.param('df["r"] = df["v"].isin([1.0, np.nan])', "nulls_equal=True", id="NaN in the list"),
+    pytest.param('df["r"] = df["v"].isin([1.0, None])', 'pl.col("v").is_in([1.0, None]).fill_null(False)',
+                 id="None does not match a missing number"),
+    pytest.param('df["r"] = df["v"].between(1, 3, inclusive="neither")', 'is_between(1, 3, closed="none")',
+                 id="between inclusive neither"),
+    pytest.param('df["r"] = df["n"].replace(1, 2.5)', 'pl.col("n").cast(pl.Float64).replace(1, 2.5)',
+                 id="replace int with a fraction makes floats"),
+    pytest.param('r = df.replace("a", "A")', 'pl.selectors.string().replace("a", "A")', id="frame replace text"),
+]
+
+
+@pytest.mark.parametrize("before, expected", PORTS)
+def test_ports(before: str, expected: str) -> None:
+    check_ports(FRAME + before + "\n", expected)
+
+
+TODOS = [
+    pytest.param("r = df[df.v > 1].reset_index()", "frame.reset_index", id="reset_index after a filter"),
+    pytest.param('r = df.sort_values("v").reset_index()', "frame.reset_index", id="reset_index after a sort"),
+    pytest.param('r = df.nlargest(2, "v", keep="last")', "frame.nlargest", id="nlargest keep last"),
+    pytest.param('r = df.nlargest(2, "v", keep="all")', "frame.nlargest", id="nlargest keep all"),
+    pytest.param('r = df.sort_values("k", key=lambda s: s.str.lower())', "frame.sort_values",
+                 id="sort key function"),
+    pytest.param('r = df.replace({"k": {"a": "A"}})', "frame.replace", id="nested replace dict"),
+    pytest.param('s2 = df["n"].replace(1, "one")', "series.replace", id="replace with another type"),
+    pytest.param("r = df.sort_index()", "frame.sort_index", id="sort_index"),
+    pytest.param('r = df["v"].reset_index()', "series.reset_index", id="series labels as a column"),
+]
+
+
+@pytest.mark.parametrize("before, key", TODOS)
+def test_todo(before: str, key: str) -> None:
+    check_todo(FRAME + before + "\n", key)
+
+
+UNCHANGED = [
+    pytest.param("xs = [3, 1, 2]\nxs.sort()\nys = sorted(xs, reverse=True)\n", id="list sort"),
+    pytest.param("text = 'a-b'\nclean = text.replace('-', '_')\n", id="str replace"),
+    pytest.param("import heapq\ntop = heapq.nlargest(2, [3, 1, 2])\n", id="heapq nlargest"),
+    pytest.param("class Range:\n    def between(self, a, b):\n        return a < b\n"
+                 "    def isin(self, xs):\n        return False\n"
+                 "r = Range()\nx = r.between(1, 2)\ny = r.isin([1])\n", id="between and isin of another class"),
+]
+
+
+@pytest.mark.parametrize("before", UNCHANGED)
+def test_unchanged(before: str) -> None:
+    check_unchanged("import pandas as pd\n" + before)
+
+
+# -- differential ---------------------------------------------------------------------------
+
+FRAMES = [
+    pytest.param('df.drop_duplicates(subset=["k"])', id="drop_duplicates first with None and NaN"),
+    pytest.param('df.drop_duplicates(subset="k", keep="last")', id="drop_duplicates last"),
+    pytest.param('df.drop_duplicates(subset=["k"], keep=False)', id="drop_duplicates keep False"),
+    pytest.param('df.drop_duplicates(subset=["k", "v"])', id="drop_duplicates two columns"),
+    pytest.param('df.drop_duplicates(subset=["v"], keep=False)', id="drop_duplicates NaN equals None"),
+    pytest.param("df.drop_duplicates()", id="drop_duplicates whole rows"),
+    pytest.param('df.sort_values("v", kind="stable")', id="sort ties stable"),
+    pytest.param('df.sort_values("v", ascending=False, kind="stable")', id="sort descending NaN last"),
+    pytest.param('df.sort_values(["k", "v"], ascending=[True, False])', id="sort ascending list"),
+    pytest.param('df.sort_values("v", na_position="first", kind="stable")', id="sort na first"),
+    pytest.param('df.sort_values(by="k", kind="stable")', id="sort text with None and unicode"),
+    pytest.param('df.sort_values(["v", "n"], ascending=False, na_position="first")', id="sort two keys na first"),
+    pytest.param('df["v"].sort_values(kind="stable")', id="series sort"),
+    pytest.param('df.nlargest(3, "v")', id="nlargest ties"),
+    pytest.param('df.nsmallest(3, "v")', id="nsmallest ties"),
+    pytest.param('df.nlargest(6, "v")', id="nlargest appends NaN rows"),
+    pytest.param('df.nsmallest(2, ["v", "n"])', id="nsmallest two columns"),
+    pytest.param('df["v"].nlargest(2)', id="series nlargest"),
+    pytest.param('df["v"].nsmallest(3)', id="series nsmallest"),
+    pytest.param('df.groupby("k")["v"].sum().reset_index()', id="reset_index after groupby"),
+    pytest.param('df.groupby("k").v.sum().reset_index(name="total")', id="reset_index name"),
+    pytest.param('df.groupby("k").size().reset_index(name="c")', id="size reset_index"),
+    pytest.param('df.groupby("k")["v"].sum().reset_index(drop=True)', id="series reset_index drop"),
+    pytest.param("df.reset_index()", id="reset_index fresh labels"),
+    pytest.param("df.head(3).reset_index()", id="reset_index after head"),
+    pytest.param("df.reset_index(drop=True)", id="reset_index drop"),
+    pytest.param("df[df.v > 1].reset_index(drop=True)", id="reset_index drop after filter"),
+    pytest.param('df.sort_values("v", kind="stable").reset_index(drop=True)', id="reset_index drop after sort"),
+    pytest.param('df.assign(r=df["k"].isin(["a", "b"]))', id="isin text with missing"),
+    pytest.param('df.assign(r=df["k"].isin(["a", None]))', id="isin None in list text"),
+    pytest.param('df.assign(r=df["v"].isin([1.0, np.nan]))', id="isin NaN in list"),
+    pytest.param('df.assign(r=df["v"].isin([1.0, None]))', id="isin None in list numbers"),
+    pytest.param('df.assign(r=~df["k"].isin(["a"]))', id="not isin keeps missing"),
+    pytest.param('df[df["k"].isin(["a"])]', id="isin as a mask"),
+    pytest.param('df[~df["v"].isin([3.0])]', id="not isin as a mask"),
+    pytest.param('df.assign(r=df["v"].between(1, 3))', id="between both"),
+    pytest.param('df.assign(r=df["v"].between(1, 3, inclusive="neither"))', id="between neither"),
+    pytest.param('df.assign(r=df["v"].between(1, 3, inclusive="left"))', id="between left"),
+    pytest.param('df.assign(r=df["v"].between(1, 3, inclusive="right"))', id="between right"),
+    pytest.param('df.assign(r=~df["v"].between(1, 2))', id="not between keeps missing"),
+    pytest.param('df.assign(r=df["k"].replace("a", "A"))', id="replace scalar text"),
+    pytest.param('df.assign(r=df["k"].replace({"a": "A", "b": "B"}))', id="replace dict text"),
+    pytest.param('df.assign(r=df["v"].replace(3.0, 30.0))', id="replace scalar float"),
+    pytest.param('df.assign(r=df["v"].replace({1.0: 10.0, 3.0: np.nan}))', id="replace dict to NaN"),
+    pytest.param('df.assign(r=df["n"].replace(1, 2.5))', id="replace int with fraction"),
+    pytest.param('df.assign(r=df["n"].replace(1.0, 5))', id="replace float key in int column"),
+    pytest.param('df.assign(r=df["k"].replace("a", None))', id="replace with None"),
+    pytest.param('df.assign(r=df["v"].replace(np.nan, 0))', id="replace NaN"),
+    pytest.param('df.replace("a", "A")', id="frame replace text"),
+    pytest.param('df.replace({"a": "A"})', id="frame replace dict"),
+    pytest.param("df.replace(3.0, 0)", id="frame replace number"),
+    pytest.param("df.replace(1, 100)", id="frame replace int"),
+    pytest.param("df.replace(1, 2.5)", id="frame replace int with fraction"),
+]
+
+
+@pytest.mark.parametrize("expr", FRAMES)
+def test_frame_matches_pandas(expr: str) -> None:
+    differential(FRAME + f"result = {expr}\n")
+
+
+def test_isin_with_a_variable_list_holding_none() -> None:
+    differential(FRAME + 'vals = ["a", None]\nresult = df[df["k"].isin(vals)]\nother = df[~df["k"].isin(vals)]\n',
+                 "result", "other")
+
+
+def test_empty_frame() -> None:
+    differential(FRAME + """
+none = df[df["n"] > 100]
+result = none.sort_values("v").drop_duplicates(subset=["k"]).nlargest(2, "v")
+flags = none.assign(r=none["v"].between(1, 2), s=none["k"].isin(["a"]))
+""", "result", "flags")
+
+
+def test_single_key_quicksort_lowers_confidence() -> None:
+    # pandas' default single-key sort is not stable: tie order may differ, and the site says so.
+    site = next(s for s in convert(FRAME + 'r = df.sort_values("v")\n').sites if s.key == "frame.sort_values")
+    assert site.confidence < 1.0 and "ties" in site.message
+
+
+def test_reset_index_after_filter_is_reported() -> None:
+    result = convert(FRAME + "r = df[df.v > 1].reset_index()\n")
+    assert any(s.key == "frame.reset_index" and s.status == "todo" for s in result.sites)
