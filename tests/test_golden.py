@@ -122,7 +122,7 @@ def test_every_site_points_at_a_source_line(name, source, stem, conversions):
     result = conversions[name]
     last = len(result.original_text.splitlines())
     for site in result.sites:
-        assert 1 <= site.line <= site.end_line <= last, site
+        assert site.line >= 1 and site.line <= site.end_line <= last, site
 
 
 @pytest.mark.parametrize("name,source,stem", CASES, ids=IDS)

@@ -11,14 +11,8 @@ import re
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.translate.context import PandasCall, RuleContext, derived_column
-from porter.translate.values import Accessor, Column, Value
-
-
-def _column(call: PandasCall) -> Column:
-    accessor = call.receiver
-    assert isinstance(accessor, Accessor)
-    return accessor.column
+from porter.translate.context import PandasCall, RuleContext, accessor_column, derived_column
+from porter.translate.values import Column, Value
 
 
 def _dt(column: Column) -> Code:
@@ -26,9 +20,7 @@ def _dt(column: Column) -> Code:
 
 
 def _result(column: Column, code: Code, dtype: str) -> Column:
-    # The evaluator builds `.dt` without the sites of the column under it (a chain would lose
-    # them from the report), so the result carries them; the engine drops repeats.
-    return derived_column(column, code, dtype=dtype).with_sites(*column.sites)
+    return derived_column(column, code, dtype=dtype)
 
 
 _COMPONENTS = {"year": "year", "month": "month", "day": "day", "hour": "hour",
@@ -46,7 +38,7 @@ def component(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: the same numbers (January 1 is day 1 in both); missing stays missing.
     Caveats: pandas' int32 becomes float64 when a value is missing; Polars keeps Int32/Int8.
     """
-    column = _column(call)
+    column = accessor_column(call)
     return _result(column, _dt(column).method(_COMPONENTS[call.name]), "int")
 
 
@@ -56,7 +48,7 @@ def weekday(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: pandas counts Monday as 0, Polars (ISO) as 1 (D03).
     """
-    column = _column(call)
+    column = accessor_column(call)
     return _result(column, emit.binop(_dt(column).method("weekday"), "-", 1), "int")
 
 
@@ -66,7 +58,7 @@ def date(call: PandasCall, ctx: RuleContext) -> Value:
 
     Caveats: pandas holds Python date objects (object dtype), Polars a Date column.
     """
-    column = _column(call)
+    column = accessor_column(call)
     return _result(column, _dt(column).method("date"), "date")
 
 
@@ -79,7 +71,7 @@ def names(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: English names in both (D04). Caveats: locale= is a TODO.
     """
-    column = _column(call)
+    column = accessor_column(call)
     ctx.reject_unknown(call)
     return _result(column, _dt(column).method("to_string", _NAMES[call.name]), "str")
 
@@ -103,7 +95,7 @@ def strftime(call: PandasCall, ctx: RuleContext) -> Value:
     Python, 9 in Polars) is written %6f.
     Caveats: other directives (%z, %Z, %c, %x, %-d …) are TODOs.
     """
-    column = _column(call)
+    column = accessor_column(call)
     ctx.reject_unknown(call, "date_format", positional=1)
     fmt = call.const("date_format", 0)
     if not isinstance(fmt, str):

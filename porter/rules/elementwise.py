@@ -16,7 +16,9 @@ import libcst as cst
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.translate.context import PandasCall, RuleContext, Unsupported, derived_column
+from porter.translate.context import (
+    PandasCall, RuleContext, Unsupported, derived_column, value_dtype,
+)
 from porter.translate.values import Column, Frame, Opaque, Value
 
 
@@ -216,7 +218,7 @@ def element_ifexp(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(cond, Column)
     then, otherwise = call.args
     code = emit.when(_truth(cond), _branch(then, cond, ctx), _branch(otherwise, cond, ctx))
-    kinds = {_kind(v) for v in (then, otherwise)}
+    kinds = {value_dtype(v) for v in (then, otherwise)}
     return derived_column(cond, code, dtype=kinds.pop() if len(kinds) == 1 else None,
                           others=[v for v in (then, otherwise) if isinstance(v, Column)])
 
@@ -242,14 +244,6 @@ def _branch(value: Value, cond: Column, ctx: RuleContext) -> Code:
     if isinstance(value, Column):
         return ctx.bool_expr(value, cond.frame)
     return ctx.expr(value, cond.frame)
-
-
-def _kind(value: Value) -> str | None:
-    if isinstance(value, Column):
-        return value.dtype
-    if isinstance(value, Opaque) and value.is_const:
-        return {bool: "bool", int: "int", float: "float", str: "str"}.get(type(value.const))
-    return None
 
 
 @rule("element.lookup")

@@ -175,25 +175,16 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
     return derive(frame, code, same_rows=True)
 
 
-@rule("frame.ffill", "frame.bfill")
-def frame_fill_direction(call: PandasCall, ctx: RuleContext) -> Value:
-    """df.ffill() / df.bfill() -> .with_columns(pl.all().forward_fill()) / backward_fill()."""
-    frame = call.receiver
-    assert isinstance(frame, Frame)
-    ctx.reject_unknown(call, "limit")
-    method = "forward_fill" if call.name == "ffill" else "backward_fill"
-    limit = call.const("limit", None, None)
-    code = frame.code.method("with_columns", emit.pl("all").method(method, *([limit] if limit is not None else [])))
-    return derive(frame, code, same_rows=True)
-
-
-@rule("series.ffill", "series.bfill")
+@rule("frame.ffill", "frame.bfill", "series.ffill", "series.bfill")
 def fill_direction(call: PandasCall, ctx: RuleContext) -> Value:
-    """s.ffill() / s.bfill() -> .forward_fill() / .backward_fill()."""
-    column = call.receiver
-    assert isinstance(column, Column)
+    """ffill() / bfill() -> .forward_fill() / .backward_fill() (every column of a frame)."""
     ctx.reject_unknown(call, "limit")
     method = "forward_fill" if call.name == "ffill" else "backward_fill"
     limit = call.const("limit", None, None)
-    code = column.code.method(method, *([limit] if limit is not None else []))
-    return derived_column(column, code, dtype=column.dtype)
+    limits = [limit] if limit is not None else []
+    receiver = call.receiver
+    if isinstance(receiver, Frame):
+        code = receiver.code.method("with_columns", emit.pl("all").method(method, *limits))
+        return derive(receiver, code, same_rows=True)
+    assert isinstance(receiver, Column)
+    return derived_column(receiver, receiver.code.method(method, *limits), dtype=receiver.dtype)

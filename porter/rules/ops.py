@@ -13,7 +13,9 @@ import math
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.translate.context import PandasCall, RuleContext, Unsupported, derive, derived_column
+from porter.translate.context import (
+    PandasCall, RuleContext, Unsupported, derive, derived_column, value_dtype,
+)
 from porter.translate.values import Column, Frame, Opaque, Value
 
 NUMERIC = {"int", "float"}
@@ -39,14 +41,6 @@ def _is_nonzero_constant(value: Value) -> bool:
         and not isinstance(value.const, bool) and value.const != 0
 
 
-def _dtype(value: Value) -> str | None:
-    if isinstance(value, Column):
-        return value.dtype
-    if isinstance(value, Opaque) and value.is_const:
-        return {bool: "bool", int: "int", float: "float", str: "str"}.get(type(value.const))
-    return None
-
-
 @rule("series.arith")
 def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
     """Series arithmetic -> Expr operators: a + b, a - b, a * b, a / b, a // b, a % b, a ** b.
@@ -64,7 +58,7 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
     op = call.name
     lcode = operand(left, frame, ctx, as_bool=True)
     rcode = operand(right, frame, ctx, as_bool=True)
-    ltype, rtype = _dtype(left), _dtype(right)
+    ltype, rtype = value_dtype(left), value_dtype(right)
     dtype: str | None = None
     if op == "+" and ltype == rtype == "bool":
         return derived_column(column, emit.binop(lcode, "|", rcode), dtype="bool", others=[left, right])
@@ -275,6 +269,6 @@ def _branch(value: Value, ctx: RuleContext, frame: Frame) -> Code:
 
 
 def _common_dtype(*values: Value) -> str | None:
-    kinds = {_dtype(v) for v in values}
+    kinds = {value_dtype(v) for v in values}
     return kinds.pop() if len(kinds) == 1 else None
 

@@ -135,26 +135,17 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     raise Unsupported("columns chosen by something other than names")
 
 
-@rule("frame.head")
+@rule("frame.head", "frame.tail")
 def head(call: PandasCall, ctx: RuleContext) -> Value:
-    """df.head(n) -> .head(n)."""
+    """df.head(n) / df.tail(n) -> .head(n) / .tail(n)."""
     ctx.reject_unknown(call, "n", positional=1)
     frame = frame_of(call)
     n = call.const("n", 0, 5)
     if not isinstance(n, int) or n < 0:
-        raise Unsupported("head with a negative or computed count needs the frame's length")
-    return derive(frame, frame.code.method("head", n), same_rows=False, labels_intact=frame.labels_intact)
-
-
-@rule("frame.tail")
-def tail(call: PandasCall, ctx: RuleContext) -> Value:
-    """df.tail(n) -> .tail(n)."""
-    ctx.reject_unknown(call, "n", positional=1)
-    frame = frame_of(call)
-    n = call.const("n", 0, 5)
-    if not isinstance(n, int) or n < 0:
-        raise Unsupported("tail with a negative or computed count needs the frame's length")
-    return derive(frame, frame.code.method("tail", n), same_rows=False)
+        raise Unsupported(f"{call.name} with a negative or computed count needs the frame's length")
+    # head keeps the first labels 0..n-1; tail does not
+    intact = frame.labels_intact and call.name == "head"
+    return derive(frame, frame.code.method(call.name, n), same_rows=False, labels_intact=intact)
 
 
 @rule("series.head", "series.tail")

@@ -20,16 +20,12 @@ import polars as pl
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.translate.context import PandasCall, RuleContext, Unsupported, derived_column
-from porter.translate.values import Accessor, Column, Opaque, Value
+from porter.translate.context import (
+    PandasCall, RuleContext, Unsupported, accessor_column, derived_column,
+)
+from porter.translate.values import Column, Opaque, Value
 
 INT64 = emit.atom("pl.Int64")
-
-
-def _column(call: PandasCall) -> Column:
-    accessor = call.receiver
-    assert isinstance(accessor, Accessor)
-    return accessor.column
 
 
 def _text(column: Column) -> Code:
@@ -37,10 +33,7 @@ def _text(column: Column) -> Code:
 
 
 def _result(column: Column, code: Code, dtype: str, null_is_false: bool = False) -> Column:
-    # The evaluator builds `.str` without the sites of the column under it (a chain would lose
-    # them from the report), so the result carries them; the engine drops repeats.
-    return derived_column(column, code, dtype=dtype, null_is_false=null_is_false).with_sites(
-        *column.sites)
+    return derived_column(column, code, dtype=dtype, null_is_false=null_is_false)
 
 
 def _string(column: Column, code: Code) -> Column:
@@ -209,7 +202,7 @@ def case(call: PandasCall, ctx: RuleContext) -> Value:
     ("ﬀ") are kept by pandas and expanded by Polars, a final sigma is "σ" in pandas and "ς" in
     Polars (confidence below 1 in the table).
     """
-    column = _column(call)
+    column = accessor_column(call)
     ctx.reject_unknown(call)
     return _string(column, _text(column).method(_CASE[call.name]))
 
@@ -224,7 +217,7 @@ def strip(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: a set of characters to strip (both read it as a set, not a prefix).
     Caveats: without chars, Python also strips \\x1c-\\x1f (0.99).
     """
-    column = _column(call)
+    column = accessor_column(call)
     ctx.reject_unknown(call, "to_strip", positional=1)
     chars = call.const("to_strip", 0, None)
     if chars is None:
@@ -244,7 +237,7 @@ def str_len(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: characters, not UTF-8 bytes ("Éclair" is 6); Int64 so arithmetic cannot wrap.
     Caveats: pandas gives float64 when a value is missing, Polars Int64 with nulls.
     """
-    column = _column(call)
+    column = accessor_column(call)
     ctx.reject_unknown(call)
     return _result(column, _text(column).method("len_chars").method("cast", INT64), "int")
 
@@ -255,7 +248,7 @@ def zfill(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: a leading sign stays in front in both ("-0042").
     """
-    column = _column(call)
+    column = accessor_column(call)
     ctx.reject_unknown(call, "width", positional=1)
     width = call.const("width", 0)
     if not isinstance(width, int):
@@ -273,7 +266,7 @@ def pad(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: side="both" and center() put the odd extra character where Python does
     (left when the width is odd), T10.
     """
-    column = _column(call)
+    column = accessor_column(call)
     if call.name == "pad":
         ctx.reject_unknown(call, "width", "side", "fillchar", positional=3)
         side = call.const("side", 1, "left")
@@ -339,7 +332,7 @@ def slice_(call: PandasCall, ctx: RuleContext) -> Value:
     strings shorter than the slice.
     Caveats: a step, and a negative start with a non-negative stop, are TODOs.
     """
-    column = _column(call)
+    column = accessor_column(call)
     ctx.reject_unknown(call, "start", "stop", "step", positional=3)
     start, stop, step = (call.const(n, i, None) for i, n in enumerate(("start", "stop", "step")))
     _check_slice(start, stop, step, ctx)
@@ -354,7 +347,7 @@ def getitem(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: an index past the end gives a missing value in pandas ("" from str.slice), so the
     character is taken only where the string is long enough.
     """
-    column = _column(call)
+    column = accessor_column(call)
     if call.name == "get":
         ctx.reject_unknown(call, "i", positional=1)
     key = call.const("i", 0)
@@ -396,7 +389,7 @@ def contains(call: PandasCall, ctx: RuleContext) -> Value:
     Caveats: lookarounds, backreferences, \\< \\>, nested sets and a $ that is not the last
     character are TODOs; \\s lowers confidence (0.98).
     """
-    column = _column(call)
+    column = accessor_column(call)
     ctx.reject_unknown(call, "pat", "case", "flags", "na", "regex", positional=5)
     pat = call.const("pat", 0)
     if not isinstance(pat, str):
@@ -418,7 +411,7 @@ def match(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: case, flags and na as for contains.
     """
-    column = _column(call)
+    column = accessor_column(call)
     ctx.reject_unknown(call, "pat", "case", "flags", "na", positional=4)
     pat = call.const("pat", 0)
     if not isinstance(pat, str):
@@ -439,7 +432,7 @@ def prefix(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: a tuple of prefixes (pl.any_horizontal over them); missing is False or `na`.
     """
-    column = _column(call)
+    column = accessor_column(call)
     ctx.reject_unknown(call, "pat", "na", positional=2)
     pat = call.const("pat", 0)
     pats = pat if isinstance(pat, tuple) else (pat,)
@@ -462,7 +455,7 @@ def replace(call: PandasCall, ctx: RuleContext) -> Value:
     Caveats: a callable repl, a compiled pattern, Python-only regex features and a regex
     replacement with n=0 or n > 1 are TODOs.
     """
-    column = _column(call)
+    column = accessor_column(call)
     ctx.reject_unknown(call, "pat", "repl", "n", "case", "flags", "regex", positional=6)
     pat, repl = call.const("pat", 0), call.const("repl", 1)
     if not isinstance(pat, str) or not isinstance(repl, str):

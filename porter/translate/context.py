@@ -218,6 +218,26 @@ def derived_column(base: Column, code: Code, *, dtype: str | None = None,
     )
 
 
+PYTHON_DTYPES = {bool: "bool", int: "int", float: "float", str: "str"}
+
+
+def value_dtype(value: Value) -> str | None:
+    """porter's dtype name of a column or a literal, when known."""
+    if isinstance(value, Column):
+        return value.dtype
+    if isinstance(value, Opaque) and value.is_const:
+        return PYTHON_DTYPES.get(type(value.const))
+    return None
+
+
+def accessor_column(call: PandasCall) -> Column:
+    """The column under `s.str` / `s.dt` for a rule of the accessor."""
+    from porter.translate.values import Accessor
+    accessor = call.receiver
+    assert isinstance(accessor, Accessor)
+    return accessor.column
+
+
 def grouping_code(grouped: Grouped) -> Code:
     """The LazyGroupBy for a pandas groupby.
 
