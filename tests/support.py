@@ -96,10 +96,22 @@ def assert_same_value(expected: Any, actual: Any) -> None:
         assert_same_table(expected, actual)
         return
     if isinstance(actual, (pl.Series, pl.DataFrame, pl.LazyFrame)):
-        assert_same_table(pd.Series(list(expected), name=getattr(expected, "name", None))
-                          if not isinstance(expected, pd.DataFrame) else expected, actual)
+        # an array from pandas (unique(), values) has no name: compare the values only
+        name = actual.name if isinstance(actual, pl.Series) else getattr(expected, "name", None)
+        assert_same_table(pd.Series(list(expected), name=name), actual)
         return
     assert same_cells(_cell(expected), _cell(actual)), f"pandas {expected!r}, polars {actual!r}"
+
+
+def _log_keys(result: FileResult) -> None:
+    """With PORTER_KEYLOG set, remember which mapping keys differential checks exercised."""
+    import os
+    log = os.environ.get("PORTER_KEYLOG")
+    if log:
+        with open(log, "a", encoding="utf-8") as handle:
+            for site in result.sites:
+                if site.status != "todo":
+                    handle.write(site.key + "\n")
 
 
 def differential(source: str, *names: str, **options: Any) -> FileResult:
@@ -107,6 +119,7 @@ def differential(source: str, *names: str, **options: Any) -> FileResult:
     the variables `names` (default: `result`). Returns the conversion for further checks."""
     source = textwrap.dedent(source)
     result = convert_source(source, options=Options(**options))
+    _log_keys(result)
     expected = run(source)
     actual = run(result.converted_text)
     for name in names or ("result",):

@@ -259,7 +259,7 @@ def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
     return out
 
 
-@rule("frame.to_parquet", "series.to_parquet")
+@rule("frame.to_parquet")
 def to_parquet(call: PandasCall, ctx: RuleContext) -> Value:
     """DataFrame.to_parquet -> LazyFrame.sink_parquet.
 

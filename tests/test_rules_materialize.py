@@ -1,0 +1,110 @@
+"""Values out of a frame (values, to_numpy, tolist), and a few keys whose rule is shared.
+
+pandas is the reference implementation: each differential check runs the snippet with pandas
+and its conversion with Polars and compares the results.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pytest
+
+from rule_checks import check_ports, check_todo
+from support import convert, differential, run
+
+FRAME = '''
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"k": ["b", "a", None, "b", "Éclair"], "v": [1.5, np.nan, 3.0, 3.0, -2.0],
+                   "n": [1, 2, 3, 4, 5]})
+'''
+
+
+def _same_list(expected, actual) -> None:
+    assert len(expected) == len(actual)
+    for e, a in zip(expected, actual):
+        if isinstance(e, float) and math.isnan(e):
+            assert isinstance(a, float) and math.isnan(a), (expected, actual)
+        else:
+            assert e == a, (expected, actual)
+
+
+@pytest.mark.parametrize("expr", [
+    pytest.param('df["v"].values', id="values keeps nan"),
+    pytest.param('df["v"].to_numpy()', id="to_numpy"),
+    pytest.param('df[df["n"] > 2]["n"].values', id="values of a filtered frame"),
+    pytest.param('df[["v", "n"]].values', id="frame values"),
+    pytest.param('df[["v", "n"]].to_numpy()', id="frame to_numpy"),
+])
+def test_arrays_match_pandas(expr: str) -> None:
+    source = FRAME + f"result = {expr}\n"
+    expected = run(source)["result"]
+    actual = run(convert(source).converted_text)["result"]
+    assert isinstance(actual, np.ndarray)
+    assert expected.shape == actual.shape
+    _same_list(expected.ravel().tolist(), actual.ravel().tolist())
+
+
+@pytest.mark.parametrize("expr", [
+    pytest.param('df["v"].tolist()', id="tolist gives nan for missing numbers"),
+    pytest.param('df["n"].to_list()', id="to_list of integers"),
+    pytest.param('df.groupby("k")["v"].sum().tolist()', id="tolist of an aggregate"),
+])
+def test_lists_match_pandas(expr: str) -> None:
+    source = FRAME + f"result = {expr}\n"
+    _same_list(run(source)["result"], run(convert(source).converted_text)["result"])
+
+
+def test_text_values_are_lowered() -> None:
+    result = convert(FRAME + 'result = df["k"].tolist()\n')
+    site = next(s for s in result.sites if s.key == "series.tolist")
+    assert site.confidence == 0.95 and "None" in site.message
+
+
+def test_values_of_a_grouped_frame_is_a_todo() -> None:
+    check_todo(FRAME + 'result = df.groupby("k").sum().values\n', "frame.values")
+
+
+def test_ports_tolist() -> None:
+    check_ports(FRAME + 'result = df["v"].tolist()\n',
+                'df.select(pl.col("v")).collect().to_series().to_numpy().tolist()')
+
+
+# -- keys that share a rule with another key ---------------------------------------------------
+
+def test_series_copy_tail_unique_and_aggregate() -> None:
+    differential(FRAME + '''
+s = df["v"].copy()
+copied = df.assign(c=s * 2)
+last = df["n"].tail(2)
+firsts = df["k"].unique()
+result = df.groupby("k").aggregate({"v": "max", "n": "sum"})
+''', "copied", "last", "firsts", "result")
+
+
+def test_series_to_csv(tmp_path, monkeypatch) -> None:
+    # both sides write a Series with its index (a groupby key), read back by pandas
+    import pandas as pd
+    source = FRAME + '''
+totals = df.groupby("k")["v"].sum()
+totals.to_csv("totals.csv")
+totals.reset_index().to_parquet("totals.parquet")
+'''
+    for side, text in (("pandas", source), ("polars", convert(source).converted_text)):
+        (tmp_path / side).mkdir()
+        monkeypatch.chdir(tmp_path / side)
+        run(text)
+    for name, read in (("totals.csv", pd.read_csv), ("totals.parquet", pd.read_parquet)):
+        expected = read(tmp_path / "pandas" / name).reset_index()
+        actual = read(tmp_path / "polars" / name).reset_index()
+        expected = expected.drop(columns=[c for c in ("index",) if c in expected])
+        actual = actual.drop(columns=[c for c in ("index",) if c in actual])
+        assert expected.to_dict("list") == actual.to_dict("list"), name
+
+
+def test_dtypes_names_every_column() -> None:
+    # the dtype names differ (Polars' own), so the check is on the columns they describe
+    source = FRAME + "result = list(dict(df.dtypes))\n"
+    assert run(source)["result"] == run(convert(source).converted_text)["result"]
