@@ -349,3 +349,44 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
     columns = ("index", *numeric_cols) if numeric_cols else None
     return Frame(code, columns=columns, index=("index",), labels_intact=False, index_unnamed=True)
 
+
+
+@rule("series.quantile")
+def series_quantile(call: PandasCall, ctx: RuleContext) -> Value:
+    """Series.quantile(q) -> select(expr.quantile(q, "linear")).collect().item().
+
+    Handles: pandas interpolates linearly (Polars' default is "nearest").
+    Caveats: a list of quantiles (a Series in pandas) is a TODO.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "q", "interpolation", positional=1)
+    q = call.const("q", 0, 0.5)
+    if not isinstance(q, (int, float)) or isinstance(q, bool):
+        raise Unsupported("several quantiles at once")
+    method = call.const("interpolation", None, "linear")
+    if method not in ("linear", "lower", "higher", "nearest", "midpoint"):
+        raise Unsupported(f"interpolation={method!r}")
+    return scalar_of(column, column.code.method("quantile", q, method))
+
+
+@rule("series.any", "series.all")
+def series_any_all(call: PandasCall, ctx: RuleContext) -> Value:
+    """Series.any() / all() -> select(expr.any() / expr.all()).collect().item().
+
+    Handles: missing values are skipped (pandas' skipna=True); a comparison that met a missing
+    value counts as False; numbers are true when not zero.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "skipna")
+    if call.const("skipna", None, True) is not True:
+        raise Unsupported("skipna=False counts missing values as true")
+    if column.dtype == "bool":
+        code = ctx.bool_expr(column, column.frame)
+    elif column.dtype in ("int", "float"):
+        code = column.code.method("cast", emit.atom("pl.Boolean"))
+    else:
+        raise Unsupported("any/all of a column whose type porter does not know (text is true "
+                          "when not empty in pandas)")
+    return scalar_of(column, code.method(call.name), pytype="bool")

@@ -235,6 +235,8 @@ class Evaluator:
             return func.receiver  # tolist() of the column names: already a list
         if not isinstance(func, (BoundMethod, Module)):
             return self.generic(node)
+        if isinstance(func, Module) and func.qualname in _PANDAS_SETTINGS:
+            return self.generic(node)  # display settings: pandas still prints what is left to it
         if isinstance(func, Module) and func.qualname.startswith("numpy."):
             args = self.call_args(node)
             if args is None or not any(_is_pandas(v) for v in (*args[0], *args[1].values())):
@@ -599,6 +601,8 @@ class _ChildRewriter(cst.CSTTransformer):
 
 # -- helpers ------------------------------------------------------------------------------------
 
+_PANDAS_SETTINGS = {"pandas.set_option", "pandas.reset_option", "pandas.get_option",
+                    "pandas.option_context", "pandas.describe_option"}
 _ELEMENT_BUILTINS = {"len", "str", "int", "float", "round", "abs"}
 _TYPE_NAMES: dict[str, type] = {"str": str, "int": int, "float": float, "bool": bool}
 _FRAME_PROPERTIES = {"columns", "shape", "dtypes", "empty", "index", "values", "T", "size",
