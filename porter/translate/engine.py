@@ -15,10 +15,12 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.model import SiteDraft
 from porter.translate import imports as import_edits
+from porter.translate.functions import discover_functions, learn_functions
+from porter.translate.writes import batch_writes
 from porter.translate.context import PandasCall, grouping_code
-from porter.translate.evaluate import Evaluator, LocalFunction, Services, _is_pandas
+from porter.translate.evaluate import Evaluator, Services
 from porter.translate.values import (
-    Column, Frame, Grouped, Module, Opaque, PandasValue, Scalar, Value, fresh_token,
+    Column, Frame, Grouped, Module, Opaque, PandasValue, Scalar, Value, fresh_token, is_pandas,
 )
 
 TODO_PREFIX = "# TODO(porter): "
@@ -54,7 +56,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     services.code_for = module.code_for_node
     services.position = position
     services.inside_from_pandas = inside_from_pandas
-    functions = _discover_functions(module)
+    functions = discover_functions(module)
     services.functions = {f.name: f for f in functions}
 
     # Which parameters of the script's own functions take frames is learnt from the calls:
@@ -64,7 +66,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
         services.call_sites = {}
         walker = _Walker(services, facts, emit_code=False)
         walker.block(module.body, _initial_env(facts), module.default_indent, "")
-        updated = _learn_functions(services, walker.returns)
+        updated = learn_functions(services, walker.returns)
         if updated == services.functions:
             break
         services.functions = updated
@@ -92,61 +94,6 @@ def _unique(sites: list[SiteDraft]) -> list[SiteDraft]:
     return sorted(out, key=lambda s: (s.line, s.end_line))
 
 
-# -- the script's own functions -------------------------------------------------------------
-
-def _discover_functions(module: cst.Module) -> list[LocalFunction]:
-    found = []
-    for stmt in module.body:
-        if isinstance(stmt, cst.FunctionDef) and not stmt.decorators:
-            params = stmt.params
-            if params.star_arg not in (None, cst.MaybeSentinel.DEFAULT) or params.star_kwarg:
-                continue
-            names = tuple(p.name.value for p in (*params.posonly_params, *params.params))
-            found.append(LocalFunction(stmt.name.value, names, frozenset(), None))
-    return found
-
-
-def _learn_functions(services: Services, returns: dict[str, list[Value]]) -> dict[str, LocalFunction]:
-    updated = {}
-    for name, function in services.functions.items():
-        calls = services.call_sites.get(name, [])
-        frame_params = set()
-        schemas = []
-        consts: list[tuple[str, Any]] = []
-        for i, param in enumerate(function.params):
-            kinds = [c[i] if i < len(c) else None for c in calls]
-            if kinds and all(isinstance(k, Frame) for k in kinds):
-                frame_params.add(param)
-                shapes = {(k.columns, tuple(sorted(k.dtypes))) for k in kinds}  # type: ignore[union-attr]
-                if len(shapes) == 1:
-                    schemas.append((param, shapes.pop()))
-            elif kinds and all(isinstance(k, Opaque) and k.is_const and isinstance(k.const, str)
-                               for k in kinds) and len({k.const for k in kinds}) == 1:  # type: ignore[union-attr]
-                consts.append((param, kinds[0].const))  # type: ignore[union-attr]
-        returned = returns.get(name, [])
-        template: Value | None = None
-        if returned and all(isinstance(r, Frame) for r in returned):
-            shapes = {(r.columns, tuple(sorted(r.dtypes)), r.index) for r in returned}  # type: ignore[union-attr]
-            columns, dtypes, index = shapes.pop() if len(shapes) == 1 else (None, (), ())
-            template = Frame(Code(""), rows=fresh_token(), labels_intact=False, columns=columns,
-                             dtypes=dtypes, index=index)
-        elif returned and all(isinstance(r, (Column, Scalar)) for r in returned):
-            template = returned[0]
-        updated[name] = replace(function, frame_params=frozenset(frame_params), returns=template,
-                                param_schemas=tuple(schemas), param_consts=tuple(consts))
-    # keep templates stable between passes so the fixpoint check can succeed
-    for name, function in updated.items():
-        old = services.functions[name]
-        if isinstance(old.returns, Frame) and isinstance(function.returns, Frame) \
-                and _same_shape(old.returns, function.returns):
-            updated[name] = replace(function, returns=old.returns)
-    return updated
-
-
-def _same_shape(a: Frame, b: Frame) -> bool:
-    return (a.columns, tuple(sorted(a.dtypes)), a.index) == (b.columns, tuple(sorted(b.dtypes)), b.index)
-
-
 # -- the walk over statements ---------------------------------------------------------------
 
 class _Walker:
@@ -169,7 +116,7 @@ class _Walker:
             new, env = self.statement(stmt, env, unit, indent)
             out.extend(new)
         if self.emit_code:
-            out = _batch_writes(out, body)
+            out = batch_writes(out, body)
         return out, env
 
     def indented(self, block: cst.BaseSuite, env: dict[str, Value], unit: str,
@@ -286,7 +233,7 @@ class _Walker:
                value: Value | None = None) -> cst.BaseExpression:
         if value is None:
             value = self.evaluate(expr, env)
-        if _is_pandas(value):
+        if is_pandas(value):
             value = Evaluator(env, self.services).handed_to_unknown(value, expr) \
                 if not isinstance(value, (Frame, Column)) else value
         self.record(value.sites)
@@ -384,7 +331,7 @@ class _Walker:
         return None, []
 
     def unchanged_or(self, node: cst.BaseExpression, value: Value, indent: str, prefix: str) -> tuple[str | None, list[SiteDraft]]:
-        if _is_pandas(value) and not isinstance(value, (Frame, Column)):
+        if is_pandas(value) and not isinstance(value, (Frame, Column)):
             value = Evaluator({}, self.services).handed_to_unknown(value, node)
         if value.code.text == self.services.code_for(node):
             return None, list(value.sites)
@@ -448,8 +395,6 @@ class _Walker:
 
     def aug_assign(self, stmt: cst.AugAssign, env: dict[str, Value], evaluator: Evaluator,
                    indent: str) -> tuple[str | None, list[SiteDraft]]:
-        op = stmt.operator.whitespace_before  # keep libcst happy about unused attributes
-        del op
         if isinstance(stmt.target, cst.Subscript):
             operator = {cst.AddAssign: cst.Add(), cst.SubtractAssign: cst.Subtract(),
                         cst.MultiplyAssign: cst.Multiply(), cst.DivideAssign: cst.Divide()}.get(
@@ -580,74 +525,6 @@ class _Walker:
             code = Evaluator(env, self.services).handed_to_unknown(value, cst.Name(name)).code
             env[name] = PandasValue(emit.atom(name))
         return emit.layout_chain(code, indent, f"{name} = "), list(value.sites)
-
-
-SINKS = ("sink_csv", "sink_parquet", "sink_ndjson", "sink_ipc")
-
-
-def _sink_call(stmt: Any) -> cst.Call | None:
-    """The write of a statement that is only `frame.sink_*(path, ...)` with a literal path."""
-    if not (isinstance(stmt, cst.SimpleStatementLine) and len(stmt.body) == 1
-            and isinstance(stmt.body[0], cst.Expr)):
-        return None
-    call = stmt.body[0].value
-    if isinstance(call, cst.Call) and isinstance(call.func, cst.Attribute) \
-            and call.func.attr.value in SINKS and call.args \
-            and isinstance(call.args[0].value, cst.SimpleString) and not any(
-                a.keyword is not None and a.keyword.value == "lazy" for a in call.args):
-        return call
-    return None
-
-
-def _batch_writes(out: list[Any], original: Any) -> list[Any]:
-    """Consecutive writes porter made become one pl.collect_all, so plans they share run once.
-
-    Only writes to distinct literal paths with nothing but blank lines between them are
-    batched: the files are then the same as when written one after the other.
-    """
-    rewritten = {id(s) for s in out} - {id(s) for s in original}
-    result: list[Any] = []
-    run: list[tuple[Any, cst.Call]] = []
-
-    def flush() -> None:
-        paths = [c.args[0].value.evaluated_value for _, c in run]  # type: ignore[union-attr]
-        if len(run) >= 2 and len(set(paths)) == len(paths):
-            result.append(_collect_all(run))
-        else:
-            result.extend(stmt for stmt, _ in run)
-        run.clear()
-
-    for stmt in out:
-        call = _sink_call(stmt) if id(stmt) in rewritten else None
-        has_comment = any(line.comment for line in getattr(stmt, "leading_lines", ()))
-        if call is not None and (not run or not has_comment):
-            run.append((stmt, call))
-            continue
-        flush()
-        if call is not None:
-            run.append((stmt, call))
-        else:
-            result.append(stmt)
-    flush()
-    return result
-
-
-def _collect_all(run: list[tuple[Any, cst.Call]]) -> cst.SimpleStatementLine:
-    module = cst.Module([])
-    lines = []
-    for _, call in run:
-        args = [*call.args]
-        args[-1] = args[-1].with_changes(comma=cst.MaybeSentinel.DEFAULT)
-        lazy = cst.Arg(keyword=cst.Name("lazy"), value=cst.Name("True"),
-                       equal=cst.AssignEqual(cst.SimpleWhitespace(""), cst.SimpleWhitespace("")))
-        with_lazy = call.with_changes(args=[*(a.with_changes(comma=cst.Comma(
-            whitespace_after=cst.SimpleWhitespace(" "))) for a in args), lazy])
-        lines.append(f"    {module.code_for_node(with_lazy)},")
-    text = "pl.collect_all([\n" + "\n".join(lines) + "\n])\n"
-    stmt = cst.parse_statement(text)
-    first = run[0][0]
-    return stmt.with_changes(leading_lines=first.leading_lines,
-                             trailing_whitespace=run[-1][0].trailing_whitespace)
 
 
 def _is_collected(code: Code) -> bool:

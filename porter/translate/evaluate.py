@@ -17,35 +17,23 @@ import libcst as cst
 
 from porter.analysis import pandas_names
 from porter.emit import code as emit
-from porter.emit.code import ATOM, Code
+from porter.emit.code import Code
 from porter.mapping import MappingTable
 from porter.model import MappingEntry, SiteDraft
 from porter.translate import handover
+from porter.translate.rewrite import BINARY_OPS, ChildRewriter, precedence
 from porter.translate.context import PandasCall, RuleContext, Unsupported
 from porter.translate.values import (
-    MISSING, Accessor, Column, Frame, Grouped, Indexer, Items, Module, Opaque, PandasValue,
-    Scalar, Value,
+    MISSING, Accessor, BoundMethod, Column, Frame, Grouped, Indexer, Items, Module, Opaque,
+    PandasValue, Scalar, Value, is_pandas,
 )
 
-BINARY_OPS = {
-    cst.Add: "+", cst.Subtract: "-", cst.Multiply: "*", cst.Divide: "/", cst.FloorDivide: "//",
-    cst.Modulo: "%", cst.Power: "**", cst.BitAnd: "&", cst.BitOr: "|", cst.BitXor: "^",
-    cst.MatrixMultiply: "@", cst.LeftShift: "<<", cst.RightShift: ">>",
-}
 COMPARE_OPS = {
     cst.Equal: "==", cst.NotEqual: "!=", cst.LessThan: "<", cst.LessThanEqual: "<=",
     cst.GreaterThan: ">", cst.GreaterThanEqual: ">=", cst.In: "in", cst.NotIn: "not in",
     cst.Is: "is", cst.IsNot: "is not",
 }
 DISPLAY_FUNCTIONS = {"print", "display", "str", "repr"}
-
-
-@dataclass(frozen=True)
-class BoundMethod(Value):
-    """`receiver.name` waiting to be called."""
-
-    receiver: Value = field(kw_only=True)
-    name: str = field(kw_only=True)
 
 
 @dataclass(frozen=True)
@@ -106,7 +94,7 @@ class Evaluator:
         return self.services.code_for(node)
 
     def opaque(self, node: cst.BaseExpression, const: Any = MISSING) -> Opaque:
-        return Opaque(Code(self.source(node), _precedence(node)), const=const, node=node)
+        return Opaque(Code(self.source(node), precedence(node)), const=const, node=node)
 
     # -- names, literals ----------------------------------------------------------------------
     def _eval_Name(self, node: cst.Name) -> Value:
@@ -138,7 +126,7 @@ class Evaluator:
         ):
             items = [v.const for v in values]  # type: ignore[union-attr]
             return self.opaque(node, items if isinstance(node, cst.List) else tuple(items))
-        if len(values) == len(node.elements) and any(_is_pandas(v) for v in values):
+        if len(values) == len(node.elements) and any(is_pandas(v) for v in values):
             return Items(Code(self.source(node)), items=tuple(values),
                          brackets="[]" if isinstance(node, cst.List) else "()",
                          sites=tuple(s for v in values for s in v.sites))
@@ -239,7 +227,7 @@ class Evaluator:
             return self.generic(node)  # display settings: pandas still prints what is left to it
         if isinstance(func, Module) and func.qualname.startswith("numpy."):
             args = self.call_args(node)
-            if args is None or not any(_is_pandas(v) for v in (*args[0], *args[1].values())):
+            if args is None or not any(is_pandas(v) for v in (*args[0], *args[1].values())):
                 return self.generic(node)
         args = self.call_args(node)
         if args is None:
@@ -282,13 +270,13 @@ class Evaluator:
 
     def call_builtin(self, name: str, node: cst.Call) -> Value:
         args = self.call_args(node)
-        if args is None or not any(_is_pandas(v) for v in (*args[0], *args[1].values())):
+        if args is None or not any(is_pandas(v) for v in (*args[0], *args[1].values())):
             return self.generic(node)
         positional, keywords = args
         if positional and isinstance(positional[0], Column) and positional[0].element:
             call = PandasCall(positional[0], name, positional[1:], keywords, node)
             return self.dispatch(f"element.{name}", call, node)
-        if name in _BUILTIN_RULES and positional and _is_pandas(positional[0]):
+        if name in _BUILTIN_RULES and positional and is_pandas(positional[0]):
             call = PandasCall(positional[0], name, positional[1:], keywords, node)
             return self.dispatch(_BUILTIN_RULES[name].format(kind=_prefix(positional[0])), call, node)
         # display: print(df) prints the collected frame
@@ -319,7 +307,7 @@ class Evaluator:
             sites += value.sites
             if isinstance(value, Frame) and param in function.frame_params:
                 text = value.code.text
-            elif _is_pandas(value):
+            elif is_pandas(value):
                 text = self.handed_to_unknown(value, node).code.text
                 sites += self.handed_to_unknown(value, node).sites[len(value.sites):]
             else:
@@ -503,100 +491,24 @@ class Evaluator:
     # -- everything else ------------------------------------------------------------------------
     def generic(self, node: cst.BaseExpression, display: bool = False) -> Value:
         """Keep `node` as written, rewriting pandas values found inside it."""
-        rewriter = _ChildRewriter(self, node, display)
+        rewriter = ChildRewriter(self, node, display)
         new_node = node.visit(rewriter)
         if not rewriter.changed:
             if rewriter.pandas_inside:
-                return PandasValue(Code(self.source(node), _precedence(node)),
+                return PandasValue(Code(self.source(node), precedence(node)),
                                    sites=tuple(rewriter.sites))
-            return Opaque(Code(self.source(node), _precedence(node)), node=node,
+            return Opaque(Code(self.source(node), precedence(node)), node=node,
                           sites=tuple(rewriter.sites))
         text = self.source(new_node)  # type: ignore[arg-type]
         if rewriter.pandas_inside:
             # built on a value handed over to pandas: a pandas object, never a plain scalar
-            return PandasValue(Code(text, _precedence(node)), sites=tuple(rewriter.sites))
-        return Opaque(Code(text, _precedence(node)), sites=tuple(rewriter.sites))
+            return PandasValue(Code(text, precedence(node)), sites=tuple(rewriter.sites))
+        return Opaque(Code(text, precedence(node)), sites=tuple(rewriter.sites))
 
 
 @dataclass(frozen=True)
 class _TupleKey(Value):
     items: tuple[Value, ...] = field(kw_only=True)
-
-
-class _ChildRewriter(cst.CSTTransformer):
-    """Evaluates the outermost expressions inside a node and swaps in their rewritten code."""
-
-    def __init__(self, evaluator: Evaluator, root: cst.CSTNode, display: bool) -> None:
-        super().__init__()
-        self.evaluator = evaluator
-        self.root = root
-        self.display = display
-        self.changed = False
-        self.sites: list[SiteDraft] = []
-        self.replacements: dict[int, cst.BaseExpression] = {}
-        self.pandas_inside = False
-
-    def on_visit(self, node: cst.CSTNode) -> bool:
-        if node is self.root:
-            return True
-        if isinstance(node, (cst.Lambda, cst.ListComp, cst.SetComp, cst.DictComp,
-                             cst.GeneratorExp)):
-            return self._visit_scope(node)
-        if isinstance(node, cst.FormattedStringExpression):
-            self._replace(node.expression, display=True)
-            return False
-        if isinstance(node, cst.Arg):  # the keyword is a name, not an expression
-            self._replace(node.value, display=self.display)
-            return False
-        if isinstance(node, cst.BaseExpression):
-            self._replace(node, display=self.display)
-            return False
-        return True
-
-    def _visit_scope(self, node: cst.CSTNode) -> bool:
-        # Names bound inside a lambda or comprehension are not the script's frames; only the
-        # outermost iterable is evaluated in the enclosing scope.
-        if isinstance(node, (cst.ListComp, cst.SetComp, cst.DictComp, cst.GeneratorExp)):
-            self._replace(node.for_in.iter, display=False)
-        return False
-
-    def _replace(self, node: cst.BaseExpression, display: bool) -> None:
-        evaluator = self.evaluator
-        value = evaluator.eval(node)
-        if _is_pandas(value):
-            value = (Opaque(handover.for_display(value), sites=value.sites) if display
-                     else evaluator.handed_to_unknown(value, node))
-        if isinstance(value, PandasValue) and not display:
-            self.pandas_inside = True
-        self.sites += value.sites
-        original = evaluator.source(node)
-        if value.code.text != original:
-            try:
-                replacement = cst.parse_expression(value.code.text)
-            except cst.ParserSyntaxError:  # a chain laid out over several lines
-                replacement = cst.parse_expression(f"({value.code.text})")
-            if value.code.prec < _precedence(node) and not replacement.lpar:
-                replacement = replacement.with_changes(lpar=[cst.LeftParen()], rpar=[cst.RightParen()])
-            self.replacements[id(node)] = replacement
-            self.changed = True
-
-    def on_leave(self, original: cst.CSTNode, updated: cst.CSTNode) -> Any:
-        # nodes whose children were rewritten without being visited
-        if isinstance(original, cst.Arg) and id(original.value) in self.replacements:
-            return updated.with_changes(value=self.replacements[id(original.value)])
-        if isinstance(original, cst.FormattedStringExpression) \
-                and id(original.expression) in self.replacements:
-            return updated.with_changes(expression=self.replacements[id(original.expression)])
-        if isinstance(original, (cst.ListComp, cst.SetComp, cst.DictComp, cst.GeneratorExp)) \
-                and id(original.for_in.iter) in self.replacements:
-            for_in = updated.for_in.with_changes(iter=self.replacements[id(original.for_in.iter)])
-            return updated.with_changes(for_in=for_in)
-        replacement = self.replacements.get(id(original))
-        if replacement is not None:
-            if getattr(original, "lpar", None):
-                return replacement.with_changes(lpar=original.lpar, rpar=original.rpar)
-            return replacement
-        return updated
 
 
 # -- helpers ------------------------------------------------------------------------------------
@@ -659,8 +571,7 @@ def _getitem_key(receiver: Value, key: Value) -> str:
     return "frame.getitem.column"
 
 
-def _is_pandas(value: Value) -> bool:
-    return isinstance(value, (Frame, Column, Grouped, Accessor, Indexer, BoundMethod, Items))
+
 
 
 def _is_series_like(value: Value) -> bool:
@@ -690,21 +601,3 @@ def _first_sentence(text: str) -> str:
     text = text.strip()
     end = text.find(". ")
     return text if end < 0 else text[: end + 1]
-
-
-def _precedence(node: cst.CSTNode) -> int:
-    if getattr(node, "lpar", None):
-        return ATOM
-    if isinstance(node, cst.BinaryOperation):
-        return emit.BINARY_PRECEDENCE[BINARY_OPS[type(node.operator)]]
-    if isinstance(node, cst.BooleanOperation):
-        return emit.AND if isinstance(node.operator, cst.And) else emit.OR
-    if isinstance(node, cst.Comparison):
-        return emit.COMPARE
-    if isinstance(node, cst.UnaryOperation):
-        return emit.NOT if isinstance(node.operator, cst.Not) else emit.UNARY
-    if isinstance(node, cst.IfExp):
-        return emit.TERNARY
-    if isinstance(node, cst.Lambda):
-        return emit.LAMBDA
-    return ATOM

@@ -155,4 +155,17 @@ class Items(Value):
     brackets: str = field(default="[]", kw_only=True)
 
 
-PANDAS_KINDS = (Frame, Column, Grouped, Accessor, Indexer, Items)
+@dataclass(frozen=True)
+class BoundMethod(Value):
+    """`receiver.name` waiting to be called."""
+
+    receiver: Value = field(kw_only=True)
+    name: str = field(kw_only=True)
+
+
+PANDAS_KINDS = (Frame, Column, Grouped, Accessor, Indexer, Items, BoundMethod)
+
+
+def is_pandas(value: Value) -> bool:
+    """A value that stands for a pandas object porter models (and must not leak as is)."""
+    return isinstance(value, PANDAS_KINDS)

@@ -1,0 +1,66 @@
+"""The script's own functions: which parameters take frames, what they return, learnt from
+the calls (a small fixpoint over the module, run by the engine)."""
+
+from __future__ import annotations
+
+from dataclasses import replace
+from typing import Any
+
+import libcst as cst
+
+from porter.emit.code import Code
+from porter.translate.evaluate import LocalFunction, Services
+from porter.translate.values import Column, Frame, Opaque, Scalar, Value, fresh_token
+
+
+def discover_functions(module: cst.Module) -> list[LocalFunction]:
+    found = []
+    for stmt in module.body:
+        if isinstance(stmt, cst.FunctionDef) and not stmt.decorators:
+            params = stmt.params
+            if params.star_arg not in (None, cst.MaybeSentinel.DEFAULT) or params.star_kwarg:
+                continue
+            names = tuple(p.name.value for p in (*params.posonly_params, *params.params))
+            found.append(LocalFunction(stmt.name.value, names, frozenset(), None))
+    return found
+
+
+def learn_functions(services: Services, returns: dict[str, list[Value]]) -> dict[str, LocalFunction]:
+    updated = {}
+    for name, function in services.functions.items():
+        calls = services.call_sites.get(name, [])
+        frame_params = set()
+        schemas = []
+        consts: list[tuple[str, Any]] = []
+        for i, param in enumerate(function.params):
+            kinds = [c[i] if i < len(c) else None for c in calls]
+            if kinds and all(isinstance(k, Frame) for k in kinds):
+                frame_params.add(param)
+                shapes = {(k.columns, tuple(sorted(k.dtypes))) for k in kinds}  # type: ignore[union-attr]
+                if len(shapes) == 1:
+                    schemas.append((param, shapes.pop()))
+            elif kinds and all(isinstance(k, Opaque) and k.is_const and isinstance(k.const, str)
+                               for k in kinds) and len({k.const for k in kinds}) == 1:  # type: ignore[union-attr]
+                consts.append((param, kinds[0].const))  # type: ignore[union-attr]
+        returned = returns.get(name, [])
+        template: Value | None = None
+        if returned and all(isinstance(r, Frame) for r in returned):
+            shapes = {(r.columns, tuple(sorted(r.dtypes)), r.index) for r in returned}  # type: ignore[union-attr]
+            columns, dtypes, index = shapes.pop() if len(shapes) == 1 else (None, (), ())
+            template = Frame(Code(""), rows=fresh_token(), labels_intact=False, columns=columns,
+                             dtypes=dtypes, index=index)
+        elif returned and all(isinstance(r, (Column, Scalar)) for r in returned):
+            template = returned[0]
+        updated[name] = replace(function, frame_params=frozenset(frame_params), returns=template,
+                                param_schemas=tuple(schemas), param_consts=tuple(consts))
+    # keep templates stable between passes so the fixpoint check can succeed
+    for name, function in updated.items():
+        old = services.functions[name]
+        if isinstance(old.returns, Frame) and isinstance(function.returns, Frame) \
+                and _same_shape(old.returns, function.returns):
+            updated[name] = replace(function, returns=old.returns)
+    return updated
+
+
+def _same_shape(a: Frame, b: Frame) -> bool:
+    return (a.columns, tuple(sorted(a.dtypes)), a.index) == (b.columns, tuple(sorted(b.dtypes)), b.index)

@@ -1,0 +1,117 @@
+"""Rewriting inside expressions porter does not model: the pandas values found in them are
+rewritten (or handed over explicitly) and everything else is kept as written."""
+
+from __future__ import annotations
+
+from typing import TYPE_CHECKING, Any
+
+import libcst as cst
+
+from porter.emit import code as emit
+from porter.emit.code import ATOM
+from porter.model import SiteDraft
+from porter.translate import handover
+from porter.translate.values import Opaque, PandasValue, is_pandas
+
+if TYPE_CHECKING:
+    from porter.translate.evaluate import Evaluator
+
+BINARY_OPS = {
+    cst.Add: "+", cst.Subtract: "-", cst.Multiply: "*", cst.Divide: "/", cst.FloorDivide: "//",
+    cst.Modulo: "%", cst.Power: "**", cst.BitAnd: "&", cst.BitOr: "|", cst.BitXor: "^",
+    cst.MatrixMultiply: "@", cst.LeftShift: "<<", cst.RightShift: ">>",
+}
+
+
+class ChildRewriter(cst.CSTTransformer):
+    """Evaluates the outermost expressions inside a node and swaps in their rewritten code."""
+
+    def __init__(self, evaluator: Evaluator, root: cst.CSTNode, display: bool) -> None:
+        super().__init__()
+        self.evaluator = evaluator
+        self.root = root
+        self.display = display
+        self.changed = False
+        self.sites: list[SiteDraft] = []
+        self.replacements: dict[int, cst.BaseExpression] = {}
+        self.pandas_inside = False
+
+    def on_visit(self, node: cst.CSTNode) -> bool:
+        if node is self.root:
+            return True
+        if isinstance(node, (cst.Lambda, cst.ListComp, cst.SetComp, cst.DictComp,
+                             cst.GeneratorExp)):
+            return self._visit_scope(node)
+        if isinstance(node, cst.FormattedStringExpression):
+            self._replace(node.expression, display=True)
+            return False
+        if isinstance(node, cst.Arg):  # the keyword is a name, not an expression
+            self._replace(node.value, display=self.display)
+            return False
+        if isinstance(node, cst.BaseExpression):
+            self._replace(node, display=self.display)
+            return False
+        return True
+
+    def _visit_scope(self, node: cst.CSTNode) -> bool:
+        # Names bound inside a lambda or comprehension are not the script's frames; only the
+        # outermost iterable is evaluated in the enclosing scope.
+        if isinstance(node, (cst.ListComp, cst.SetComp, cst.DictComp, cst.GeneratorExp)):
+            self._replace(node.for_in.iter, display=False)
+        return False
+
+    def _replace(self, node: cst.BaseExpression, display: bool) -> None:
+        evaluator = self.evaluator
+        value = evaluator.eval(node)
+        if is_pandas(value):
+            value = (Opaque(handover.for_display(value), sites=value.sites) if display
+                     else evaluator.handed_to_unknown(value, node))
+        if isinstance(value, PandasValue) and not display:
+            self.pandas_inside = True
+        self.sites += value.sites
+        original = evaluator.source(node)
+        if value.code.text != original:
+            try:
+                replacement = cst.parse_expression(value.code.text)
+            except cst.ParserSyntaxError:  # a chain laid out over several lines
+                replacement = cst.parse_expression(f"({value.code.text})")
+            if value.code.prec < precedence(node) and not replacement.lpar:
+                replacement = replacement.with_changes(lpar=[cst.LeftParen()], rpar=[cst.RightParen()])
+            self.replacements[id(node)] = replacement
+            self.changed = True
+
+    def on_leave(self, original: cst.CSTNode, updated: cst.CSTNode) -> Any:
+        # nodes whose children were rewritten without being visited
+        if isinstance(original, cst.Arg) and id(original.value) in self.replacements:
+            return updated.with_changes(value=self.replacements[id(original.value)])
+        if isinstance(original, cst.FormattedStringExpression) \
+                and id(original.expression) in self.replacements:
+            return updated.with_changes(expression=self.replacements[id(original.expression)])
+        if isinstance(original, (cst.ListComp, cst.SetComp, cst.DictComp, cst.GeneratorExp)) \
+                and id(original.for_in.iter) in self.replacements:
+            for_in = updated.for_in.with_changes(iter=self.replacements[id(original.for_in.iter)])
+            return updated.with_changes(for_in=for_in)
+        replacement = self.replacements.get(id(original))
+        if replacement is not None:
+            if getattr(original, "lpar", None):
+                return replacement.with_changes(lpar=original.lpar, rpar=original.rpar)
+            return replacement
+        return updated
+
+
+def precedence(node: cst.CSTNode) -> int:
+    if getattr(node, "lpar", None):
+        return ATOM
+    if isinstance(node, cst.BinaryOperation):
+        return emit.BINARY_PRECEDENCE[BINARY_OPS[type(node.operator)]]
+    if isinstance(node, cst.BooleanOperation):
+        return emit.AND if isinstance(node.operator, cst.And) else emit.OR
+    if isinstance(node, cst.Comparison):
+        return emit.COMPARE
+    if isinstance(node, cst.UnaryOperation):
+        return emit.NOT if isinstance(node.operator, cst.Not) else emit.UNARY
+    if isinstance(node, cst.IfExp):
+        return emit.TERNARY
+    if isinstance(node, cst.Lambda):
+        return emit.LAMBDA
+    return ATOM
