@@ -111,3 +111,27 @@ def test_python_dash_m_and_console_script(script):
     proc = subprocess.run([sys.executable, "-m", "porter", "convert", str(script), "-q"],
                           capture_output=True, text=True)
     assert proc.returncode == 0 and "pl.scan_csv" in proc.stdout
+
+
+def test_data_folder_gives_the_shortest_faithful_code(tmp_path, capsys):
+    # with --data porter reads the input schemas (no data) and knows the columns: usecols keep
+    # file order by name, shared merge columns are renamed by name, not found at run time
+    (tmp_path / "data").mkdir()
+    (tmp_path / "data" / "a.csv").write_text("k,kg,grade\n1,2.5,A\n")
+    (tmp_path / "data" / "b.csv").write_text("k,grade,price\n1,B,3\n")
+    script = tmp_path / "join.py"
+    script.write_text(
+        "import pandas as pd\n"
+        "a = pd.read_csv('data/a.csv', usecols=['grade', 'k'])\n"
+        "b = pd.read_csv('data/b.csv')\n"
+        "m = a.merge(b, on='k')\n"
+        "m.to_csv('m.csv', index=False)\n")
+    assert main(["convert", str(script), "-q"]) == 0
+    without = capsys.readouterr().out
+    assert main(["convert", str(script), "--data", str(tmp_path), "-q"]) == 0
+    with_data = capsys.readouterr().out
+    assert "collect_schema" in without and 'pl.col("^(grade|k)$")' in without
+    flat = "".join(with_data.split())
+    assert "collect_schema" not in with_data
+    assert '.select("k","grade")' in flat
+    assert '.rename({"grade":"grade_x"})' in flat and '.rename({"grade":"grade_y"})' in flat

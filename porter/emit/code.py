@@ -190,7 +190,9 @@ def layout_chain(code: Code, indent: str, prefix: str, suffix: str = "") -> str:
     one_line = f"{prefix}{code.text}{suffix}"
     if len(indent) + len(one_line) <= LINE_LENGTH:
         return one_line
-    if code.base is None or len(code.steps) < 2:
+    # a chain is laid out one step per line; a single call on a plain name (df.with_columns)
+    # gets one argument per line instead
+    if code.base is None or not code.steps or (len(code.steps) == 1 and "(" not in code.base):
         return _split_call(code.text, prefix, suffix) or one_line
     # continuation lines are relative: libcst adds the enclosing block's indentation
     lines = [f"{prefix}(", "    " + code.base]

@@ -9,8 +9,9 @@ PANDAS_NA_VALUES = [
 
 hives = pl.scan_csv("hives.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
 # a hive is strong when it is heavy and calm
-strong = ((pl.col("weight_kg") > 40) & ~(pl.col("temper") == "aggressive").fill_null(False)).fill_null(
-    False,
+strong = (
+    ((pl.col("weight_kg") > 40) & ~(pl.col("temper") == "aggressive").fill_null(False))
+    .fill_null(False)
 )
 hives = hives.with_columns(
     label=pl.when(strong).then(pl.lit("strong")).otherwise(pl.lit("watch")),

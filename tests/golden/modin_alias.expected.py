@@ -7,8 +7,9 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
-trays = pl.scan_csv("trays.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None).select(
-    pl.col("^(tray|species|sown|sprouted)$"),
+trays = (
+    pl.scan_csv("trays.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
+    .select(pl.col("^(tray|species|sown|sprouted)$"))
 )
 trays = trays.with_columns(rate=(pl.col("sprouted") / pl.col("sown")).fill_nan(None))
 best = trays.sort("rate", descending=True, nulls_last=True, maintain_order=True).head(3)

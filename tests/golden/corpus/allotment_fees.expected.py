@@ -46,8 +46,9 @@ def load_plots(path):
 
 
 def load_payments(path):
-    payments = pl.scan_csv(path, null_values=PANDAS_NA_VALUES, infer_schema_length=None).with_columns(
-        pl.col("paid_on").str.to_datetime(time_unit="us"),
+    payments = (
+        pl.scan_csv(path, null_values=PANDAS_NA_VALUES, infer_schema_length=None)
+        .with_columns(pl.col("paid_on").str.to_datetime(time_unit="us"))
     )
     payments = payments.with_columns(
         method=pl.col("method").str.strip_chars().str.to_lowercase().replace("chq", "cheque"),

@@ -21,8 +21,9 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
-sales = pl.scan_csv("data/sales.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None).with_columns(
-    pl.col("sale_date").str.to_datetime(time_unit="us"),
+sales = (
+    pl.scan_csv("data/sales.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
+    .with_columns(pl.col("sale_date").str.to_datetime(time_unit="us"))
 )
 print((sales.select(pl.len()).collect().item(), len(sales.collect_schema())))
 

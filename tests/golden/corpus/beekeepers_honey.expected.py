@@ -30,8 +30,9 @@ MAX_MOISTURE = 18.6
 
 
 def load_season(path, season):
-    sheet = pl.scan_csv(path, null_values=PANDAS_NA_VALUES, infer_schema_length=None).with_columns(
-        pl.col("harvest_date").str.to_datetime(time_unit="us"),
+    sheet = (
+        pl.scan_csv(path, null_values=PANDAS_NA_VALUES, infer_schema_length=None)
+        .with_columns(pl.col("harvest_date").str.to_datetime(time_unit="us"))
     )
     return sheet.with_columns(season=pl.lit(season))
 

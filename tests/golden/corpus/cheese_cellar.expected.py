@@ -22,8 +22,9 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
-wheels = pl.scan_csv("data/wheels.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None).with_columns(
-    pl.col("made_on").str.to_datetime(time_unit="us"),
+wheels = (
+    pl.scan_csv("data/wheels.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
+    .with_columns(pl.col("made_on").str.to_datetime(time_unit="us"))
 )
 wheels = wheels.drop_nulls("now_kg")
 print(wheels.select(pl.len()).collect().item())

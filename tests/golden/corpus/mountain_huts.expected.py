@@ -22,8 +22,9 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
-stays = pl.scan_parquet("data/stays.parquet").with_columns(
-    pl.col(pl.Float32, pl.Float64).fill_nan(None),
+stays = (
+    pl.scan_parquet("data/stays.parquet")
+    .with_columns(pl.col(pl.Float32, pl.Float64).fill_nan(None))
 )
 huts = pl.scan_csv(
     "data/huts.csv",

@@ -26,8 +26,9 @@ GRADE_PRICES = pl.LazyFrame(
     strict=False,
 )
 
-weighings = pl.scan_csv("data/weighings.csv", null_values=PANDAS_NA_VALUES + ["-"], infer_schema_length=None).with_columns(
-    pl.col("pick_date").str.to_datetime(time_unit="us"),
+weighings = (
+    pl.scan_csv("data/weighings.csv", null_values=PANDAS_NA_VALUES + ["-"], infer_schema_length=None)
+    .with_columns(pl.col("pick_date").str.to_datetime(time_unit="us"))
 )
 growers = pl.scan_csv(
     "data/growers.csv",

@@ -16,8 +16,9 @@ TEST_COLUMNS = ["test_id", "accession", "species", "sown", "germinated", "test_d
 
 
 def load_tests(path):
-    tests = pl.scan_csv(path, null_values=PANDAS_NA_VALUES, schema_overrides={"accession": pl.String}, infer_schema_length=None).select(
-        pl.col("^(test_id|accession|species|sown|germinated|test_date)$"),
+    tests = (
+        pl.scan_csv(path, null_values=PANDAS_NA_VALUES, schema_overrides={"accession": pl.String}, infer_schema_length=None)
+        .select(pl.col("^(test_id|accession|species|sown|germinated|test_date)$"))
     )
     return tests.drop_nulls("germinated")
 
