@@ -182,3 +182,18 @@ def test_single_key_quicksort_lowers_confidence() -> None:
 def test_reset_index_after_filter_is_reported() -> None:
     result = convert(FRAME + "r = df[df.v > 1].reset_index()\n")
     assert any(s.key == "frame.reset_index" and s.status == "todo" for s in result.sites)
+
+
+@pytest.mark.parametrize("expr", [
+    pytest.param('df[df["k"].isin(other["k"])]', id="isin another frame's column"),
+    pytest.param('df[~df["k"].isin(other["k"])]', id="not isin another frame's column"),
+    pytest.param('df[df["k"].isin(df["j"])]', id="isin a column of the same frame"),
+])
+def test_isin_a_series_matches_pandas(expr: str) -> None:
+    # pandas is the reference: membership in the other Series' values, missing matches missing
+    differential("""
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"k": ["a", None, "b", "é", "c"], "j": ["b", "x", None, "c", "y"]})
+other = pd.DataFrame({"k": ["b", None, "é", "b"]})
+""" + f"result = {expr}\n")

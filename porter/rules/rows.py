@@ -183,7 +183,7 @@ def series_reset_index(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("series.isin")
 def isin(call: PandasCall, ctx: RuleContext) -> Value:
-    """s.isin([...]) -> .is_in([...]).
+    """s.isin([...]) -> .is_in([...]); s.isin(other_series) -> .is_in(its values).
 
     Handles: a missing value is not in the list (False in pandas, null in Polars, filled where
     it matters); NaN in the list matches missing values (nulls_equal=True), None only in a
@@ -203,7 +203,18 @@ def isin(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower(f"`{values.code.text}` is taken to be a list of values", 0.85)
         code = column.code.method("is_in", values.code, nulls_equal=True)
         return derived_column(column, code, dtype="bool")
-    raise Unsupported("isin with a Series or a frame")
+    if isinstance(values, Column):
+        # pandas tests membership in the other Series' values (no alignment); a missing value
+        # is in it when the other Series has one too (nulls_equal=True)
+        if values.frame.rows == column.frame.rows:
+            others = ctx.expr(values, column.frame).method("implode")
+        else:
+            # another frame: its values are collected first (an expression cannot read it)
+            others = values.frame.code.method("select", values.code).method("collect").method("to_series")
+        code = column.code.method("is_in", others, nulls_equal=True)
+        return derived_column(column, code, dtype="bool", others=[values] if values.frame.rows
+                              == column.frame.rows else [])
+    raise Unsupported("isin with a frame or a value computed by pandas")
 
 
 def _matches_missing(items: list[Any], dtype: str | None, ctx: RuleContext) -> bool:

@@ -75,7 +75,8 @@ def getitem_mask(call: PandasCall, ctx: RuleContext) -> Value:
     """
     frame = frame_of(call)
     mask = call.args[0]
-    assert isinstance(mask, Column)
+    if not isinstance(mask, Column):
+        raise Unsupported("the mask was computed by pandas (see the TODO where it was made)")
     return derive(frame, frame.code.method("filter", ctx.expr(mask, frame)), same_rows=False)
 
 

@@ -559,7 +559,7 @@ def _getitem_key(receiver: Value, key: Value) -> str:
         return f"series.{receiver.kind}.getitem"
     if isinstance(receiver, Column):
         return "series.getitem"
-    if isinstance(key, Column):
+    if isinstance(key, (Column, PandasValue)):
         return "frame.getitem.mask"
     if isinstance(key, Opaque) and key.is_const:
         if isinstance(key.const, str):

@@ -109,11 +109,21 @@ def main():
     )
     per_branch.with_columns(PANDAS_CSV_DATETIMES).sink_csv("branch_month_loans.csv")
 
-    # TODO(porter): series.isin: isin with a Series or a frame
-    # TODO(porter): frame.getitem.column: a key of this kind (~loans.select(pl.col("member_id")).collect().to_series().to_pandas().isin(members.select(pl.col("memb…
-    unknown_members = loans.collect().to_pandas()[~loans.select(pl.col("member_id")).collect().to_series().to_pandas().isin(members.select(pl.col("member_no")).collect().to_series().to_pandas())]
-    unknown_members[["loan_id", "member_id", "borrowed_on"]].to_csv("unknown_members.csv", index=False)
-    print(len(unknown_members))
+    unknown_members = (
+        loans
+        .filter(
+            ~pl.col("member_id").is_in(members.select(pl.col("member_no")).collect().to_series(), nulls_equal=True),
+        )
+        .collect()
+        .lazy()
+    )
+    (
+        unknown_members
+        .select("loan_id", "member_id", "borrowed_on")
+        .with_columns(PANDAS_CSV_DATETIMES)
+        .sink_csv("unknown_members.csv")
+    )
+    print(unknown_members.select(pl.len()).collect().item())
 
 
 if __name__ == "__main__":
