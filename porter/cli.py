@@ -7,6 +7,7 @@ import difflib
 import json
 from pathlib import Path
 import sys
+from typing import TextIO
 
 from porter import __version__
 from porter.api import convert_file
@@ -42,7 +43,40 @@ def build_parser() -> argparse.ArgumentParser:
                          help="folder the script runs in: input schemas are read from it (no data loaded)")
     convert.add_argument("--fail-on-todo", action="store_true", help="exit 1 when TODOs remain")
     convert.add_argument("-q", "--quiet", action="store_true", help="no summary on stderr")
+    convert.add_argument("--verify", action="store_true",
+                         help="then run both versions on --data and compare their outputs "
+                              "(runs the script: same trust as running it yourself)")
+    _verify_options(convert)
+
+    verify = commands.add_parser(
+        "verify", help="run a script and its conversion on the same data and compare outputs",
+        description=(
+            "Run the original pandas script and the converted Polars script, each in its own "
+            "temporary copy of DIR, and compare every file they write and every frame left in "
+            "their globals. This RUNS THE SCRIPTS: it is the same trust as running them "
+            "yourself. Exit codes: 0 same, 1 different, 2 error."))
+    verify.add_argument("original", help="the pandas script")
+    verify.add_argument("converted", nargs="?",
+                        help="the converted script (default: convert ORIGINAL in memory)")
+    verify.add_argument("--data", metavar="DIR", required=True,
+                        help="the folder the script runs in (copied; never written)")
+    _verify_options(verify)
     return parser
+
+
+def _verify_options(parser: argparse.ArgumentParser) -> None:
+    group = parser.add_argument_group("verification")
+    group.add_argument("--timeout", type=float, default=600.0, metavar="S",
+                       help="seconds each side may run (default 600)")
+    group.add_argument("--memory-limit", type=int, default=None, metavar="MB",
+                       help="address-space limit of each side, in MiB")
+    group.add_argument("--rtol", type=float, default=1e-9,
+                       help="relative tolerance for floats (default 1e-9)")
+    group.add_argument("--ignore-order", action="store_true",
+                       help="compare tables as multisets of rows")
+    group.add_argument("--json", metavar="FILE", help="write the verdict as JSON")
+    group.add_argument("--keep", action="store_true",
+                       help="keep both working copies and print where they are")
 
 
 def _confidence(text: str) -> float:
@@ -60,6 +94,15 @@ def main(argv: list[str] | None = None) -> int:
     try:
         if args.command == "convert":
             return convert(args)
+        if args.command == "verify":
+            converted = None
+            if args.converted is not None:
+                path = Path(args.converted)
+                if not path.is_file():
+                    raise ConversionError("no such file", args.converted)
+                converted = path.read_text(encoding="utf-8")
+            return run_verify(args, args.original, converted,
+                              args.converted or "(converted in memory)", sys.stdout)
     except ConversionError as exc:
         print(f"porter: {exc}", file=sys.stderr)
         return EXIT_USAGE
@@ -88,7 +131,31 @@ def convert(args: argparse.Namespace) -> int:
         _write(Path(args.report), json.dumps(report_json([result]), indent=2) + "\n")
     if not args.quiet:
         print(summary_text([result]), file=sys.stderr)
-    return EXIT_TODO if args.fail_on_todo and result.todos else EXIT_OK
+    code = EXIT_TODO if args.fail_on_todo and result.todos else EXIT_OK
+    if args.verify:
+        if args.data is None:
+            raise ConversionError("--verify needs --data DIR (the folder the script runs in)")
+        verified = run_verify(args, args.input, result.converted_text, output or "(converted)",
+                              sys.stderr)
+        code = max(code, verified)
+    return code
+
+
+def run_verify(args: argparse.Namespace, original: str, converted: str | None, label: str,
+               stream: TextIO) -> int:
+    from porter.verify.api import VerifyOptions, verify
+    from porter.verify.text import kept_folders, render
+    options = VerifyOptions(timeout=args.timeout, memory_mib=args.memory_limit, rtol=args.rtol,
+                            ignore_order=args.ignore_order, keep=args.keep)
+    result = verify(original, converted, args.data, options)
+    print(render(result, original, label), file=stream)
+    if args.keep:
+        print(kept_folders(result), file=stream)
+    if args.json:
+        _write(Path(args.json), json.dumps(result.to_json(), indent=2) + "\n")
+    if result.verdict == "same":
+        return EXIT_OK
+    return EXIT_USAGE if result.verdict == "error" else EXIT_TODO
 
 
 def _write(path: Path, text: str) -> None:

@@ -1,9 +1,11 @@
-"""The shipped demo: convert every pandas script in `corpus/` and show what porter did.
+"""The shipped demo: convert every pandas script in `corpus/`, verify each conversion by running
+both versions on the script's sample data, and show what porter did.
 
-    python -m porter.demo [--out build/demo]
+    python -m porter.demo [--out build/demo] [--no-verify]
 
 Each converted script is written beside a JSON report in the output folder; the terminal shows
-one line per script and the overall summary.
+one line per script (sites, TODOs, verdict, time and peak memory of both versions) and the
+overall summary. Verifying runs the corpus scripts.
 """
 
 from __future__ import annotations
@@ -16,8 +18,15 @@ import sys
 from porter.api import convert_file
 from porter.cli import report_json, summary_text
 from porter.model import FileResult, Options
+from porter.verify.api import verify
+from porter.verify.model import SideRun
 
 ROOT = Path(__file__).resolve().parent.parent
+
+
+def _cost(run: SideRun) -> str:
+    peak = "" if run.peak_mib is None else f" {run.peak_mib:.0f}MiB"
+    return f"{run.wall_s:.2f}s{peak}"
 
 
 def demo_scripts(corpus: Path) -> list[Path]:
@@ -28,31 +37,44 @@ def main(argv: list[str] | None = None) -> int:
     parser = argparse.ArgumentParser(prog="python -m porter.demo", description=__doc__.splitlines()[0])
     parser.add_argument("--corpus", type=Path, default=ROOT / "corpus")
     parser.add_argument("--out", type=Path, default=ROOT / "build" / "demo")
+    parser.add_argument("--no-verify", action="store_true", help="convert only")
     args = parser.parse_args(argv)
     if not args.corpus.is_dir():
         print(f"porter demo: no corpus folder at {args.corpus}", file=sys.stderr)
         return 2
     args.out.mkdir(parents=True, exist_ok=True)
     results: list[FileResult] = []
-    print(f"{'script':<28} {'converted':>9} {'handover':>9} {'TODO':>5}  lowest confidence")
+    print(f"{'script':<24} {'sites':>5} {'TODO':>4} {'lowest':>6}  {'verdict':<8} "
+          f"{'pandas':>15} {'polars':>15}")
+    verdicts = []
     for script in demo_scripts(args.corpus):
         target = args.out / script.name
         # each script runs in its own folder: its input schemas are read from there
-        result = convert_file(script, output=str(target), options=Options(data_dir=str(script.parent)))
+        options = Options(data_dir=str(script.parent))
+        result = convert_file(script, output=str(target), options=options)
         target.write_text(result.converted_text, encoding="utf-8")
         results.append(result)
         summary = result.summary()
         lowest = summary["lowest_confidence"]
-        print(f"{script.stem:<28} {summary['converted']:>9} {summary['handover']:>9} "
-              f"{summary['todo']:>5}  {'' if lowest is None else f'{lowest:.2f}'}")
+        line = (f"{script.stem:<24} {summary['sites']:>5} {summary['todo']:>4} "
+                f"{'' if lowest is None else f'{lowest:.2f}':>6}  ")
+        if not args.no_verify:
+            verdict = verify(script, result.converted_text, script.parent)
+            verdicts.append(verdict.verdict)
+            line += (f"{verdict.verdict:<8} {_cost(verdict.original):>15} "
+                     f"{_cost(verdict.converted):>15}")
+        print(line, flush=True)
     (args.out / "report.json").write_text(json.dumps(report_json(results), indent=2) + "\n",
                                           encoding="utf-8")
     print()
     print(summary_text(results))
+    if verdicts:
+        same = sum(v == "same" for v in verdicts)
+        print(f"verified: {same} of {len(verdicts)} conversions compute the same outputs as pandas")
     print(f"\nConverted scripts and report.json are in {args.out}")
     print(f"Try: diff -u {args.corpus / 'orchard_harvest' / 'orchard_harvest.py'} "
           f"{args.out / 'orchard_harvest.py'}")
-    return 0
+    return 0 if all(v == "same" for v in verdicts) else 1
 
 
 if __name__ == "__main__":

@@ -200,12 +200,20 @@ def unary(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("series.round", "frame.round")
 def round_(call: PandasCall, ctx: RuleContext) -> Value:
-    """s.round(n) / round(s, n) -> .round(n) (both round half to even)."""
+    """s.round(n) / round(s, n) / df.round(n) -> .round(n) (both round half to even).
+
+    Caveats: a float computed from a sum or mean that lands on a decimal half (676.215) can
+    round either way: the two libraries (and Polars' streaming engine from run to run) add
+    floats in different orders, so the last bit differs (0.98).
+    """
     ctx.reject_unknown(call, "decimals", positional=1)
     decimals = call.const("decimals", 0, 0)
     if not isinstance(decimals, int) or decimals < 0:
         raise Unsupported("rounding to tens or hundreds (negative decimals)")
     receiver = call.receiver
+    if not (isinstance(receiver, Column) and receiver.dtype == "int"):
+        ctx.lower("a computed float on a decimal half can round the other way (floats are added "
+                  "in another order)", 0.98)
     if isinstance(receiver, Column):
         return derived_column(receiver, receiver.code.method("round", decimals), dtype=receiver.dtype)
     assert isinstance(receiver, Frame)

@@ -1,0 +1,165 @@
+"""`verify`: run the original and the converted script on the same data, compare every output.
+
+Each side runs in its own temporary copy of the data folder, so inputs are found at the same
+relative paths and neither side sees the other's outputs; the user's folder is never written.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from pathlib import Path
+import shutil
+import tempfile
+
+from porter.model import ConversionError
+from porter.verify.compare import compare
+from porter.verify.model import SEVERITY, Comparison, OutputResult, VerifyResult
+from porter.verify.runner import SideOutputs, run_side
+from porter.verify.tables import TableReadError, read_table
+
+
+@dataclass(frozen=True)
+class VerifyOptions:
+    timeout: float = 600.0
+    memory_mib: int | None = None
+    rtol: float = 1e-9
+    ignore_order: bool = False
+    keep: bool = False
+
+
+def verify(original: str | Path, converted_text: str | None, data_dir: str | Path,
+           options: VerifyOptions | None = None) -> VerifyResult:
+    """Run both versions of a script on `data_dir` and compare what they leave behind.
+
+    `converted_text` is the converted script; None converts `original` in memory first.
+    """
+    options = options or VerifyOptions()
+    original, data = Path(original), Path(data_dir)
+    if not original.is_file():
+        raise ConversionError("no such script", str(original))
+    if not data.is_dir():
+        raise ConversionError("no such folder (--data is the folder the script runs in)", str(data))
+    original_text = original.read_text(encoding="utf-8")
+    if converted_text is None:
+        from porter.api import convert_source
+        from porter.model import Options
+        converted_text = convert_source(original_text, path=str(original),
+                                        options=Options(data_dir=str(data))).converted_text
+    script_rel = _script_place(original, data)
+    root = Path(tempfile.mkdtemp(prefix="porter-verify-"))
+    try:
+        sides = {}
+        for side, text in (("original", original_text), ("converted", converted_text)):
+            (root / side).mkdir()
+            sides[side] = run_side(text, script_rel, data, root / side,
+                                   timeout=options.timeout, memory_mib=options.memory_mib)
+        result = _judge(sides["original"], sides["converted"], options)
+    finally:
+        if not options.keep:
+            shutil.rmtree(root, ignore_errors=True)
+    return result
+
+
+def _script_place(original: Path, data: Path) -> str:
+    """Where the script sits in the working copy: its own place when it lives in the folder."""
+    try:
+        return str(original.resolve().relative_to(data.resolve()))
+    except ValueError:
+        return original.name
+
+
+def _judge(before: SideOutputs, after: SideOutputs, options: VerifyOptions) -> VerifyResult:
+    notes: list[str] = []
+    outputs: list[OutputResult] = []
+    if before.run.failure or after.run.failure:
+        for side, out in (("original", before), ("converted", after)):
+            if out.run.failure:
+                outputs.append(OutputResult(f"{side} script", "variable", Comparison(
+                    "error", f"the {side} script {out.run.failure}")))
+        return VerifyResult("error", tuple(outputs), before.run, after.run)
+    for name in sorted(set(before.files) | set(after.files)):
+        outputs.append(OutputResult(name, "file", _compare_files(
+            before.files.get(name), after.files.get(name), options)))
+    for side, out in (("original", before), ("converted", after)):
+        if out.variable_error:
+            outputs.append(OutputResult(f"({side} frames)", "variable", Comparison(
+                "error", f"the frames left by the {side} script could not be read: "
+                         f"{out.variable_error}")))
+    for name in sorted(set(before.variables) | set(after.variables)):
+        if name not in after.variables and name in after.expressions:
+            notes.append(f"{name}: a Polars expression in the converted script (not data); "
+                         "not compared")
+            continue
+        outputs.append(OutputResult(name, "variable", _compare_values(
+            before.variables.get(name), after.variables.get(name), options)))
+    verdict = max((o.comparison.status for o in outputs), key=SEVERITY.__getitem__, default="same")
+    if not outputs:
+        notes.append("neither script left a file or a frame to compare")
+    return VerifyResult(verdict, tuple(outputs), before.run, after.run, tuple(notes))
+
+
+def _missing(a: object, b: object) -> Comparison | None:
+    if a is None:
+        return Comparison("missing", "only the converted script produced it")
+    if b is None:
+        return Comparison("missing", "the converted script did not produce it")
+    return None
+
+
+def _compare_files(a: Path | None, b: Path | None, options: VerifyOptions) -> Comparison:
+    missing = _missing(a, b)
+    if missing is not None:
+        return missing
+    assert a is not None and b is not None
+    try:
+        expected, actual = read_table(a), read_table(b)
+    except TableReadError as exc:
+        return Comparison("error", f"could not be read back as a table: {exc}")
+    if expected is None or actual is None:
+        if a.read_bytes() == b.read_bytes():
+            return Comparison("same", "identical bytes")
+        return Comparison("different", _first_text_difference(a, b))
+    return _safely(lambda: compare(expected, actual, rtol=options.rtol,
+                                   ignore_order=options.ignore_order))
+
+
+def _compare_values(a: object, b: object, options: VerifyOptions) -> Comparison:
+    missing = _missing(a, b)
+    if missing is not None:
+        return missing
+    a, b = _unnamed_series(a, b)
+    return _safely(lambda: compare(a, b, rtol=options.rtol, ignore_order=options.ignore_order))
+
+
+def _unnamed_series(a: object, b: object) -> tuple[object, object]:
+    """Two Series left in variables of the same name compare by their values: the variable
+    names them. (A row taken from a frame, `for _, row in df.iterrows()`, is named by its row
+    label, which a hand-over to pandas renumbers.)"""
+    kinds = {type(a).__name__, type(b).__name__}
+    if kinds <= {"Series"}:
+        return _renamed(a, "values"), _renamed(b, "values")
+    return a, b
+
+
+def _renamed(series: object, name: str) -> object:
+    rename = getattr(series, "rename")
+    return rename(name)
+
+
+def _safely(run) -> Comparison:  # type: ignore[no-untyped-def]
+    try:
+        return run()
+    except Exception as exc:  # an output porter cannot compare is reported by name
+        return Comparison("error", f"could not be compared: {type(exc).__name__}: {exc}")
+
+
+def _first_text_difference(a: Path, b: Path) -> str:
+    try:
+        left = a.read_text(encoding="utf-8").splitlines()
+        right = b.read_text(encoding="utf-8").splitlines()
+    except UnicodeDecodeError:
+        return "the bytes differ"
+    for number, (x, y) in enumerate(zip(left, right), start=1):
+        if x != y:
+            return f"line {number} differs: {x[:60]!r} vs {y[:60]!r}"
+    return f"{len(left)} lines vs {len(right)} lines"

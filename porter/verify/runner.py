@@ -1,0 +1,131 @@
+"""Running one side: a private copy of the data folder, a child process with time and memory
+limits, and what the script left behind (new or changed files, frames in its globals)."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+import hashlib
+import os
+from pathlib import Path
+import pickle
+import resource
+import shutil
+import signal
+import subprocess
+import sys
+import threading
+import time
+from typing import Any
+
+from porter.verify.model import SideRun
+
+IGNORED_PARTS = {"__pycache__", ".ipynb_checkpoints"}
+
+
+@dataclass
+class SideOutputs:
+    run: SideRun
+    files: dict[str, Path] = field(default_factory=dict)  # relative path -> file
+    variables: dict[str, Any] = field(default_factory=dict)
+    expressions: list[str] = field(default_factory=list)
+    variable_error: str | None = None
+
+
+def _fingerprints(root: Path) -> dict[str, str]:
+    prints = {}
+    for path in root.rglob("*"):
+        if path.is_file() and not IGNORED_PARTS & set(path.relative_to(root).parts):
+            prints[str(path.relative_to(root))] = hashlib.sha256(path.read_bytes()).hexdigest()
+    return prints
+
+
+def _limits(memory_mib: int | None):  # type: ignore[no-untyped-def]
+    def apply() -> None:
+        if memory_mib is not None:
+            limit = memory_mib * 1024 * 1024
+            resource.setrlimit(resource.RLIMIT_AS, (limit, limit))
+    return apply
+
+
+def run_side(script_text: str, script_rel: str, data_dir: Path, side_dir: Path, *,
+             timeout: float, memory_mib: int | None) -> SideOutputs:
+    """Copy `data_dir` into `side_dir/work`, put the script at `script_rel` in it, run it there."""
+    work = side_dir / "work"
+    shutil.copytree(data_dir, work, symlinks=True)
+    script = work / script_rel
+    script.parent.mkdir(parents=True, exist_ok=True)
+    script.write_text(script_text, encoding="utf-8")
+    dump = side_dir / "frames"
+    dump.mkdir()
+    before = _fingerprints(work)
+
+    env = dict(os.environ)
+    env["PYTHONDONTWRITEBYTECODE"] = "1"
+    env.setdefault("PYTHONHASHSEED", "0")
+    command = [sys.executable, "-m", "porter.verify.child", str(script), str(dump)]
+    started = time.perf_counter()
+    proc = subprocess.Popen(command, cwd=work, stdout=subprocess.PIPE, stderr=subprocess.PIPE,
+                            env=env, start_new_session=True, preexec_fn=_limits(memory_mib))
+    out: list[bytes] = []
+    err: list[bytes] = []
+    readers = [threading.Thread(target=lambda s=stream, b=buf: b.append(s.read()), daemon=True)
+               for stream, buf in ((proc.stdout, out), (proc.stderr, err))]
+    for reader in readers:
+        reader.start()
+    timed_out = threading.Event()
+
+    def stop() -> None:
+        timed_out.set()
+        try:
+            os.killpg(proc.pid, signal.SIGKILL)
+        except ProcessLookupError:
+            pass
+
+    timer = threading.Timer(timeout, stop)
+    timer.start()
+    _, status, usage = os.wait4(proc.pid, 0)  # the child's own resource usage (peak memory)
+    timer.cancel()
+    wall = time.perf_counter() - started
+    proc.returncode = os.waitstatus_to_exitcode(status)
+    for reader in readers:
+        reader.join(timeout=5)
+    stdout = b"".join(out).decode("utf-8", "replace")
+    stderr = b"".join(err).decode("utf-8", "replace")
+    exit_code = proc.returncode
+    peak = usage.ru_maxrss / 1024  # KiB on Linux
+    failure = _failure(exit_code, stderr, timed_out.is_set(), memory_mib)
+    run = SideRun(exit_code=exit_code, wall_s=wall, peak_mib=peak, stdout=stdout,
+                  stderr=stderr, failure=failure, workdir=str(work))
+    result = SideOutputs(run)
+    after = _fingerprints(work)
+    result.files = {rel: work / rel for rel, digest in after.items()
+                    if before.get(rel) != digest and rel != script_rel}
+    if failure is None:
+        _load_frames(dump, result)
+    return result
+
+
+def _failure(exit_code: int, stderr: str, timed_out: bool, memory_mib: int | None) -> str | None:
+    if timed_out:
+        return "timed out"
+    if exit_code == 0:
+        return None
+    memory_signs = ("MemoryError", "memory allocation", "Cannot allocate memory",
+                    "std::bad_alloc", "out of memory")
+    if memory_mib is not None and (exit_code < 0 or any(s in stderr for s in memory_signs)):
+        return "out of memory"
+    if exit_code < 0:
+        return f"killed by signal {signal.Signals(-exit_code).name}"
+    return "crashed"
+
+
+def _load_frames(dump: Path, result: SideOutputs) -> None:
+    try:
+        for path in sorted(dump.glob("*.pickle")):
+            with open(path, "rb") as handle:
+                result.variables[path.stem] = pickle.load(handle)  # noqa: S301 - our child wrote it
+        expressions = dump / "expressions.txt"
+        if expressions.exists():
+            result.expressions = [n for n in expressions.read_text().splitlines() if n]
+    except Exception as exc:  # a frame that cannot be read back is reported, not fatal
+        result.variable_error = f"{type(exc).__name__}: {exc}"

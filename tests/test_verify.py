@@ -1,0 +1,120 @@
+"""`porter verify` end to end: both versions run on the same data, every output compared.
+
+pandas is the reference: the original script runs with pandas, the converted one with Polars.
+"""
+
+from __future__ import annotations
+
+import json
+from pathlib import Path
+import shutil
+
+import pytest
+
+from corpus_check import CORPUS, cases
+from porter.cli import main
+from porter.verify.api import VerifyOptions, verify
+
+FIXTURES = Path(__file__).resolve().parent / "verify_fixtures" / "harvest"
+
+
+def test_a_faithful_conversion_is_the_same():
+    result = verify(FIXTURES / "harvest.py", (FIXTURES / "harvest_polars.py").read_text(), FIXTURES)
+    assert result.verdict == "same", result.to_json()
+    names = {o.name: o for o in result.outputs}
+    assert {"totals.csv", "named.csv"} <= set(names)
+    assert names["by_grower"].kind == "variable"  # a frame left in the globals
+    assert result.original.exit_code == 0 and result.converted.exit_code == 0
+    assert result.original.peak_mib and result.original.wall_s > 0
+
+
+@pytest.mark.parametrize("broken, output", [
+    pytest.param("broken_aggregation.py", "totals.csv", id="a wrong aggregation"),
+    pytest.param("broken_filter.py", "named.csv", id="a missing filter"),
+    pytest.param("broken_join.py", "named.csv", id="a wrong join type"),
+])
+def test_broken_conversions_are_caught(broken, output):
+    result = verify(FIXTURES / "harvest.py", (FIXTURES / broken).read_text(), FIXTURES)
+    assert result.verdict == "different"
+    statuses = {o.name: o.comparison.status for o in result.outputs}
+    assert statuses[output] == "different", statuses
+
+
+def test_the_users_folder_is_never_written(tmp_path):
+    data = tmp_path / "data_copy"
+    shutil.copytree(FIXTURES, data)
+    before = sorted(p.relative_to(data) for p in data.rglob("*"))
+    verify(data / "harvest.py", None, data)
+    assert sorted(p.relative_to(data) for p in data.rglob("*")) == before
+
+
+@pytest.mark.parametrize("name", cases())
+def test_every_corpus_script_verifies_as_same(name):
+    result = verify(CORPUS / name / f"{name}.py", None, CORPUS / name)
+    assert result.verdict == "same", json.dumps(result.to_json(), indent=1, default=str)[:3000]
+
+
+def _script(tmp_path: Path, text: str) -> Path:
+    (tmp_path / "data").mkdir()
+    script = tmp_path / "data" / "job.py"
+    script.write_text(text)
+    return script
+
+
+def test_a_crash_is_an_error_with_its_traceback(tmp_path):
+    script = _script(tmp_path, "import pandas as pd\nraise ValueError('the ferry sank')\n")
+    result = verify(script, None, script.parent)
+    assert result.verdict == "error"
+    assert result.original.failure == "crashed"
+    assert "ValueError: the ferry sank" in result.original.stderr
+
+
+def test_a_script_that_hangs_is_stopped(tmp_path):
+    script = _script(tmp_path, "import time\nwhile True:\n    time.sleep(0.1)\n")
+    result = verify(script, None, script.parent, VerifyOptions(timeout=2))
+    assert result.verdict == "error" and result.original.failure == "timed out"
+    assert result.original.wall_s < 10
+
+
+def test_a_script_that_allocates_without_end_is_stopped(tmp_path):
+    script = _script(tmp_path, "blocks = []\nwhile True:\n    blocks.append(bytearray(50_000_000))\n")
+    result = verify(script, None, script.parent, VerifyOptions(memory_mib=400, timeout=60))
+    assert result.verdict == "error" and result.original.failure == "out of memory"
+
+
+def test_a_missing_output_is_reported(tmp_path):
+    data = tmp_path / "work"
+    data.mkdir()
+    (data / "a.py").write_text("import pandas as pd\npd.DataFrame({'x': [1]}).to_csv('x.csv', index=False)\n")
+    result = verify(data / "a.py", "print('nothing written')\n", data)
+    assert result.verdict == "missing"
+    assert [(o.name, o.comparison.status) for o in result.outputs] == [("x.csv", "missing")]
+
+
+def test_cli_verify_exit_codes_and_json(tmp_path, capsys):
+    report = tmp_path / "verdict.json"
+    assert main(["verify", str(FIXTURES / "harvest.py"), str(FIXTURES / "harvest_polars.py"),
+                 "--data", str(FIXTURES), "--json", str(report)]) == 0
+    out = capsys.readouterr().out
+    assert "SAME" in out and "totals.csv" in out
+    data = json.loads(report.read_text())
+    assert data["verdict"] == "same" and {"exit_code", "wall_s", "peak_mib"} <= set(data["original"])
+    assert {"name", "kind", "status", "detail"} <= set(data["outputs"][0])
+    assert main(["verify", str(FIXTURES / "harvest.py"), str(FIXTURES / "broken_join.py"),
+                 "--data", str(FIXTURES)]) == 1
+    assert "DIFFERENT" in capsys.readouterr().out
+
+
+def test_cli_verify_bad_input(tmp_path, capsys):
+    assert main(["verify", str(tmp_path / "none.py"), "--data", str(tmp_path)]) == 2
+    assert "no such script" in capsys.readouterr().err
+    assert main(["verify", str(FIXTURES / "harvest.py"), "--data", str(tmp_path / "nope")]) == 2
+    assert "no such folder" in capsys.readouterr().err
+
+
+def test_convert_then_verify(tmp_path, capsys):
+    out = tmp_path / "harvest_polars.py"
+    code = main(["convert", str(FIXTURES / "harvest.py"), "-o", str(out), "--verify",
+                 "--data", str(FIXTURES), "-q"])
+    assert code == 0
+    assert "SAME" in capsys.readouterr().err
