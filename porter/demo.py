@@ -45,7 +45,7 @@ def main(argv: list[str] | None = None) -> int:
     args.out.mkdir(parents=True, exist_ok=True)
     results: list[FileResult] = []
     print(f"{'script':<24} {'sites':>5} {'TODO':>4} {'lowest':>6}  {'verdict':<8} "
-          f"{'pandas':>15} {'polars':>15}")
+          f"{'pandas':>16} {'polars':>16}")
     verdicts = []
     for script in demo_scripts(args.corpus):
         target = args.out / script.name
@@ -61,8 +61,8 @@ def main(argv: list[str] | None = None) -> int:
         if not args.no_verify:
             verdict = verify(script, result.converted_text, script.parent)
             verdicts.append(verdict.verdict)
-            line += (f"{verdict.verdict:<8} {_cost(verdict.original):>15} "
-                     f"{_cost(verdict.converted):>15}")
+            line += (f"{verdict.verdict:<8} {_cost(verdict.original):>16} "
+                     f"{_cost(verdict.converted):>16}")
         print(line, flush=True)
     (args.out / "report.json").write_text(json.dumps(report_json(results), indent=2) + "\n",
                                           encoding="utf-8")

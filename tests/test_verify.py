@@ -118,3 +118,45 @@ def test_convert_then_verify(tmp_path, capsys):
                  "--data", str(FIXTURES), "-q"])
     assert code == 0
     assert "SAME" in capsys.readouterr().err
+
+
+def test_an_output_that_cannot_be_read_back_is_named(tmp_path):
+    data = tmp_path / "work"
+    data.mkdir()
+    writer = "open('broken.parquet', 'wb').write(b'not a parquet file')\n"
+    (data / "a.py").write_text(writer)
+    result = verify(data / "a.py", writer, data)
+    assert result.verdict == "error"
+    (out,) = result.outputs
+    assert out.name == "broken.parquet" and out.comparison.status == "error"
+    assert "broken.parquet" in out.comparison.detail or "read back" in out.comparison.detail
+
+
+def test_rows_in_another_order_fail_unless_ignored(tmp_path, capsys):
+    data = tmp_path / "work"
+    data.mkdir()
+    script = data / "a.py"
+    script.write_text("import pandas as pd\n"
+                      "pd.DataFrame({'x': [1, 2, 3]}).to_csv('x.csv', index=False)\n")
+    shuffled = ("import polars as pl\n"
+                "pl.DataFrame({'x': [3, 1, 2]}).write_csv('x.csv')\n")
+    (tmp_path / "shuffled.py").write_text(shuffled)
+    assert verify(script, shuffled, data).verdict == "same-unordered"
+    args = ["verify", str(script), str(tmp_path / "shuffled.py"), "--data", str(data)]
+    assert main(args) == 1
+    assert main(args + ["--ignore-order"]) == 0
+
+
+def test_keep_leaves_both_working_copies(tmp_path, capsys):
+    assert main(["verify", str(FIXTURES / "harvest.py"), "--data", str(FIXTURES), "--keep"]) == 0
+    out = capsys.readouterr().out
+    kept = [line.split(" ran in ")[1] for line in out.splitlines() if " ran in " in line]
+    assert len(kept) == 2
+    assert all((Path(folder) / "totals.csv").is_file() for folder in kept)
+    shutil.rmtree(Path(kept[0]).parent.parent, ignore_errors=True)
+
+
+def test_verify_help_says_it_runs_code(capsys):
+    with pytest.raises(SystemExit):
+        main(["verify", "--help"])
+    assert "RUNS THE SCRIPTS" in capsys.readouterr().out
