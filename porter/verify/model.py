@@ -56,9 +56,11 @@ class SideRun:
     def to_json(self) -> dict[str, object]:
         data: dict[str, object] = {"exit_code": self.exit_code, "wall_s": round(self.wall_s, 3),
                                    "peak_mib": None if self.peak_mib is None else round(self.peak_mib, 1)}
+        # kept for the report, not compared: the two libraries print differently
+        data["stdout_tail"] = "\n".join(self.stdout.splitlines()[-20:])
+        data["stderr_tail"] = "\n".join(self.stderr.splitlines()[-20:])
         if self.failure:
             data["failure"] = self.failure
-            data["stderr_tail"] = "\n".join(self.stderr.splitlines()[-20:])
         if self.workdir:
             data["workdir"] = self.workdir
         return data
