@@ -16,12 +16,12 @@ def _series(column: Column) -> Code:
     return column.frame.code.method("select", expr).method("collect").method("to_series")
 
 
-@rule("series.values", "series.to_numpy")
+@rule("series.values", "series.to_numpy", "series.tolist", "series.to_list")
 def series_values(call: PandasCall, ctx: RuleContext) -> Value:
-    """Series.values / to_numpy() -> collect the column, .to_numpy().
+    """Series.values / to_numpy() / tolist() -> collect the column, .to_numpy() (.tolist()).
 
-    Handles: missing numbers become nan, and integer columns with missing values become float,
-    as in pandas.
+    Handles: missing numbers become nan (Polars' to_list would give None), and integer columns
+    with missing values become float, as in pandas.
     Caveats: text columns give None for a missing value where pandas gives nan.
     """
     column = call.receiver
@@ -29,22 +29,10 @@ def series_values(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.reject_unknown(call)
     if column.dtype not in ("int", "float", "bool"):
         ctx.lower("a missing text value is None here, nan in pandas", 0.95)
-    return Scalar(_series(column).method("to_numpy"), pytype="array")
-
-
-@rule("series.tolist", "series.to_list")
-def series_tolist(call: PandasCall, ctx: RuleContext) -> Value:
-    """Series.tolist() -> collect the column, .to_numpy().tolist().
-
-    Handles: missing numbers are nan, as pandas gives them (Polars' to_list gives None).
-    Caveats: text columns give None for a missing value where pandas gives nan.
-    """
-    column = call.receiver
-    assert isinstance(column, Column)
-    ctx.reject_unknown(call)
-    if column.dtype not in ("int", "float", "bool"):
-        ctx.lower("a missing text value is None here, nan in pandas", 0.95)
-    return Scalar(_series(column).method("to_numpy").method("tolist"), pytype="list")
+    code = _series(column).method("to_numpy")
+    if call.name in ("tolist", "to_list"):
+        return Scalar(code.method("tolist"), pytype="list")
+    return Scalar(code, pytype="array")
 
 
 @rule("frame.values", "frame.to_numpy")
