@@ -59,7 +59,6 @@ class Services:
     code_for: Callable[[cst.CSTNode], str]
     position: Callable[[cst.CSTNode], tuple[int, int]]
     min_confidence: float = 0.0
-    schemas: Mapping[str, Mapping[str, str]] = field(default_factory=dict)
     functions: dict[str, LocalFunction] = field(default_factory=dict)
     call_sites: dict[str, list[tuple[Value, ...]]] = field(default_factory=dict)
     inside_from_pandas: Callable[[cst.CSTNode], bool] = lambda node: False
