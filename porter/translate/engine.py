@@ -34,9 +34,10 @@ class Translation:
 
 
 def translate_module(module: cst.Module, services: Services) -> Translation:
-    wrapper = MetadataWrapper(module)
-    positions = wrapper.resolve(PositionProvider)
-    parents = wrapper.resolve(ParentNodeProvider)
+    # the module is never changed in place (rewrites build new nodes), so no defensive copy
+    wrapper = MetadataWrapper(module, unsafe_skip_copy=True)
+    metadata = wrapper.resolve_many([PositionProvider, ParentNodeProvider])
+    positions, parents = metadata[PositionProvider], metadata[ParentNodeProvider]
     module = wrapper.module
     facts = collect_imports(module)
 
@@ -263,6 +264,8 @@ class _Walker:
             if text is not None:
                 self.count_consumers(text, before, id(small))
         self.record(tuple(sites))
+        if not self.emit_code:  # an analysis pass only learns; the last pass writes
+            return [line]
         todo_lines = _todo_comments(sites, line)
         if all(t is None for t in texts) and not todo_lines:
             return [line]
