@@ -32,9 +32,10 @@ class Site:
     status: Status
     confidence: float
     message: str
+    cell: int | None = None  # notebooks: the cell's position, counting from 1 (lines are the cell's)
 
     def to_json(self) -> dict[str, object]:
-        return {
+        data: dict[str, object] = {
             "line": self.line,
             "end_line": self.end_line,
             "key": self.key,
@@ -43,6 +44,9 @@ class Site:
             "confidence": round(self.confidence, 3),
             "message": self.message,
         }
+        if self.cell is not None:
+            data["cell"] = self.cell
+        return data
 
 
 @dataclass(frozen=True)
