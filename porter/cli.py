@@ -4,13 +4,19 @@ from __future__ import annotations
 
 import argparse
 import difflib
+import importlib.util
 import json
+import os
 from pathlib import Path
 import sys
 from typing import TextIO
 
 from porter import __version__
 from porter.api import convert_file
+from porter.batch import (DEFAULT_MAX_SIZE, BatchOptions, check_problems, folder_report,
+                          merge_reports, parse_shard, parse_size, run_batch, scan_text)
+from porter.batch import summary_text as batch_summary_text
+from porter.config import Config, load_config
 from porter.mapping import MappingFileError
 from porter.model import ConversionError, FileResult, Options, summarize
 
@@ -30,19 +36,22 @@ def build_parser() -> argparse.ArgumentParser:
     parser.add_argument("--version", action="version", version=f"porter {__version__}")
     commands = parser.add_subparsers(dest="command", required=True, parser_class=_Parser)
 
-    convert = commands.add_parser("convert", help="convert one pandas script",
-                                  description="Convert one pandas script to Polars lazy code.")
-    convert.add_argument("input", help="the pandas script")
-    convert.add_argument("-o", "--output", default="-",
-                         help="where to write the converted script (default: stdout)")
+    convert = commands.add_parser(
+        "convert", help="convert a pandas script, or every one in a folder",
+        description=(
+            "Convert one pandas script to Polars lazy code, or a folder: its tree is mirrored "
+            "under -o OUT_DIR (scripts without pandas copied unchanged, other files not copied). "
+            "Exit codes: 0 done; 1 a file failed, TODOs remain under --fail-on-todo, or --check "
+            "found pandas code; 2 bad usage or bad input."))
+    convert.add_argument("input", help="the pandas script, or a folder")
+    convert.add_argument("-o", "--output", default=None,
+                         help="where to write the converted script (default: stdout), or the "
+                              "output folder for a folder")
     convert.add_argument("--diff", action="store_true", help="print a unified diff, write nothing")
-    convert.add_argument("--report", metavar="FILE.json", help="write the JSON report here")
-    convert.add_argument("--min-confidence", type=_confidence, default=0.0, metavar="X",
-                         help="rewrites below this confidence become TODOs carrying the suggestion")
-    convert.add_argument("--data", metavar="DIR",
-                         help="folder the script runs in: input schemas are read from it (no data loaded)")
-    convert.add_argument("--fail-on-todo", action="store_true", help="exit 1 when TODOs remain")
+    _analysis_options(convert)
     convert.add_argument("-q", "--quiet", action="store_true", help="no summary on stderr")
+    convert.add_argument("--in-place", action="store_true",
+                         help="rewrite the sources themselves (each written completely, then renamed)")
     convert.add_argument("--verify", action="store_true",
                          help="then run both versions on --data and compare their outputs "
                               "(runs the script: same trust as running it yourself)")
@@ -61,7 +70,55 @@ def build_parser() -> argparse.ArgumentParser:
     verify.add_argument("--data", metavar="DIR", required=True,
                         help="the folder the script runs in (copied; never written)")
     _verify_options(verify)
+
+    scan = commands.add_parser(
+        "scan", help="readiness report: what porter would convert, write nothing",
+        description=(
+            "Analyse pandas scripts and folders without writing anything: per file and in total, "
+            "the pandas APIs used, the sites porter would convert and the TODOs by mapping key. "
+            "Exit codes: 0 done; 1 a file failed, TODOs remain under --fail-on-todo, or --check "
+            "found pandas code; 2 bad usage."))
+    scan.add_argument("inputs", nargs="+", metavar="PATH", help="scripts and folders")
+    _analysis_options(scan)
+    scan.add_argument("-q", "--quiet", action="store_true", help="print nothing")
+
+    report = commands.add_parser("report", help="work with JSON reports")
+    report_commands = report.add_subparsers(dest="report_command", required=True,
+                                            parser_class=_Parser)
+    merge = report_commands.add_parser(
+        "merge", help="merge the reports of shards into one",
+        description="Concatenate the files of shard reports and recompute the summary; a file "
+                    "in two reports is an error.")
+    merge.add_argument("reports", nargs="+", metavar="REPORT.json")
+    merge.add_argument("-o", "--output", required=True, metavar="MERGED.json")
     return parser
+
+
+def _analysis_options(parser: argparse.ArgumentParser) -> None:
+    """Options shared by convert and scan; None means: take [tool.porter] or the default."""
+    parser.add_argument("--report", metavar="FILE.json", help="write the JSON report here")
+    if sarif_available():
+        parser.add_argument("--format", choices=("json", "sarif"), default="json",
+                            help="format of --report: porter's JSON (default) or SARIF 2.1.0")
+    parser.add_argument("--min-confidence", type=_confidence, default=None, metavar="X",
+                        help="rewrites below this confidence become TODOs carrying the suggestion")
+    parser.add_argument("--data", metavar="DIR",
+                        help="folder the script runs in: input schemas are read from it (no data loaded)")
+    parser.add_argument("--fail-on-todo", action=argparse.BooleanOptionalAction, default=None,
+                        help="exit 1 when TODOs remain")
+    parser.add_argument("--check", action="store_true",
+                        help="write nothing; exit 1 when pandas code porter could convert or a "
+                             "TODO remains (for CI)")
+    folder = parser.add_argument_group("folders")
+    folder.add_argument("-j", "--jobs", type=_positive, default=None, metavar="N",
+                        help="parallel processes (default: all cores)")
+    folder.add_argument("--exclude", action="append", default=[], metavar="GLOB",
+                        help="skip paths matching GLOB (relative to the folder, or a file or "
+                             "folder name); repeatable, adds to [tool.porter] exclude")
+    folder.add_argument("--max-size", type=_size, default=DEFAULT_MAX_SIZE, metavar="SIZE",
+                        help="files larger than this fail (default 2MB)")
+    folder.add_argument("--shard", type=_shard, default=None, metavar="K/N",
+                        help="process only the K-th of N slices of the sorted file list")
 
 
 def _verify_options(parser: argparse.ArgumentParser) -> None:
@@ -89,11 +146,51 @@ def _confidence(text: str) -> float:
     return value
 
 
+def _positive(text: str) -> int:
+    try:
+        value = int(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"not a whole number: {text!r}") from None
+    if value < 1:
+        raise argparse.ArgumentTypeError("must be at least 1")
+    return value
+
+
+def _size(text: str) -> int:
+    try:
+        return parse_size(text)
+    except ValueError as exc:
+        raise argparse.ArgumentTypeError(str(exc)) from None
+
+
+def _shard(text: str) -> tuple[int, int]:
+    try:
+        return parse_shard(text)
+    except ValueError as exc:
+        raise argparse.ArgumentTypeError(str(exc)) from None
+
+
+def sarif_available() -> bool:
+    try:
+        return importlib.util.find_spec("porter.sarif") is not None
+    except (ImportError, ValueError):
+        return False
+
+
 def main(argv: list[str] | None = None) -> int:
     args = build_parser().parse_args(argv)
     try:
+        if args.command in ("convert", "scan"):
+            _apply_config(args, load_config())
         if args.command == "convert":
+            if args.check or args.in_place or Path(args.input).is_dir():
+                return batch_command(args, [args.input])
             return convert(args)
+        if args.command == "scan":
+            return batch_command(args, args.inputs)
+        if args.command == "report":
+            _write(Path(args.output), json.dumps(merge_reports(args.reports), indent=2) + "\n")
+            return EXIT_OK
         if args.command == "verify":
             converted = None
             if args.converted is not None:
@@ -112,11 +209,67 @@ def main(argv: list[str] | None = None) -> int:
     return EXIT_USAGE
 
 
+def _apply_config(args: argparse.Namespace, config: Config) -> None:
+    """The command line wins over [tool.porter]; --exclude adds to its exclude list."""
+    if args.min_confidence is None:
+        args.min_confidence = config.min_confidence if config.min_confidence is not None else 0.0
+    if args.fail_on_todo is None:
+        args.fail_on_todo = bool(config.fail_on_todo)
+    if args.jobs is None:
+        args.jobs = config.jobs or os.cpu_count() or 1
+    args.exclude = [*config.exclude, *args.exclude]
+
+
+def batch_command(args: argparse.Namespace, paths: list[str]) -> int:
+    """Folders (and `scan`, `--check`, `--in-place` on files): the work lives in porter.batch."""
+    if args.data is not None and not Path(args.data).is_dir():
+        raise ConversionError("no such folder", args.data)
+    scanning = args.command == "scan" or args.check
+    if args.command == "convert" and not scanning:
+        if args.diff:
+            raise ConversionError("--diff works on one script, not a folder", args.input)
+        if args.verify:
+            raise ConversionError("--verify works on one script, not a folder", args.input)
+        if args.in_place and args.output not in (None, "-"):
+            raise ConversionError("give either -o OUT_DIR or --in-place, not both", args.input)
+        if not args.in_place and args.output in (None, "-"):
+            raise ConversionError("converting a folder needs -o OUT_DIR (or --in-place)", args.input)
+    options = BatchOptions(
+        options=Options(min_confidence=args.min_confidence, data_dir=args.data),
+        mode="scan" if scanning else "convert",
+        jobs=args.jobs, max_size=args.max_size, excludes=tuple(args.exclude), shard=args.shard,
+        in_place=getattr(args, "in_place", False) and not scanning,
+        output_dir=None if scanning or args.in_place else args.output,
+        progress=not args.quiet)
+    batch = run_batch(paths, options)
+    results = batch.results
+    if args.report:
+        if getattr(args, "format", "json") == "sarif":
+            from porter.sarif import to_sarif
+            document = to_sarif(results)
+        else:
+            document = folder_report(results, command=options.mode, shard_of=args.shard,
+                                     notes=batch.notes)
+        _write(Path(args.report), json.dumps(document, indent=2) + "\n")
+    problems = check_problems(results) if args.check else []
+    if not args.quiet:
+        if args.command == "scan":
+            print(scan_text(results, batch.notes))
+        else:
+            print(scan_text(results, batch.notes) if args.check
+                  else batch_summary_text(results, batch.notes), file=sys.stderr)
+        for problem in problems:
+            print(f"porter: check failed: {problem}", file=sys.stderr)
+    failures = any(r.status == "failed" for r in results)
+    todos = args.fail_on_todo and any(r.todos for r in results)
+    return EXIT_TODO if failures or todos or problems else EXIT_OK
+
+
 def convert(args: argparse.Namespace) -> int:
     if args.data is not None and not Path(args.data).is_dir():
         raise ConversionError("no such folder", args.data)
     options = Options(min_confidence=args.min_confidence, data_dir=args.data)
-    output = None if args.diff or args.output == "-" else args.output
+    output = None if args.diff or args.output in (None, "-") else args.output
     result = convert_file(args.input, options=options, output=output)
     if args.diff:
         sys.stdout.writelines(difflib.unified_diff(
@@ -128,7 +281,12 @@ def convert(args: argparse.Namespace) -> int:
     else:
         _write(Path(output), result.converted_text)
     if args.report:
-        _write(Path(args.report), json.dumps(report_json([result]), indent=2) + "\n")
+        if getattr(args, "format", "json") == "sarif":
+            from porter.sarif import to_sarif
+            document = to_sarif([result])
+        else:
+            document = report_json([result])
+        _write(Path(args.report), json.dumps(document, indent=2) + "\n")
     if not args.quiet:
         print(summary_text([result]), file=sys.stderr)
     code = EXIT_TODO if args.fail_on_todo and result.todos else EXIT_OK
