@@ -71,8 +71,11 @@ def generate(folder: Path, count: int, seed: int = 7) -> None:
 
 def timed(command: list[str]) -> float:
     started = time.perf_counter()
-    subprocess.run(command, check=False, capture_output=True)
-    return time.perf_counter() - started
+    proc = subprocess.run(command, check=False, capture_output=True, text=True)
+    elapsed = time.perf_counter() - started
+    if proc.returncode != 0:  # a failed run would time nothing worth reporting
+        raise SystemExit(f"{' '.join(command)} failed:\n{proc.stderr[-2000:]}")
+    return elapsed
 
 
 def parse_and_print(folder: Path) -> float:
