@@ -13,12 +13,13 @@ from typing import TextIO
 
 from porter import __version__
 from porter.api import convert_file
-from porter.batch import (DEFAULT_MAX_SIZE, BatchOptions, check_problems, folder_report,
-                          merge_reports, parse_shard, parse_size, run_batch, scan_text)
-from porter.batch import summary_text as batch_summary_text
+from porter.batch import (DEFAULT_MAX_SIZE, BatchOptions, parse_shard, parse_size, run_batch,
+                          write_atomic)
+from porter.reports import (check_problems, folder_report, folder_summary_text, merge_reports,
+                            report_json, scan_text, summary_text)
 from porter.config import Config, load_config
 from porter.mapping import MappingFileError
-from porter.model import ConversionError, FileResult, Options, summarize
+from porter.model import ConversionError, Options
 
 EXIT_OK, EXIT_TODO, EXIT_USAGE = 0, 1, 2
 
@@ -257,7 +258,7 @@ def batch_command(args: argparse.Namespace, paths: list[str]) -> int:
             print(scan_text(results, batch.notes))
         else:
             print(scan_text(results, batch.notes) if args.check
-                  else batch_summary_text(results, batch.notes), file=sys.stderr)
+                  else folder_summary_text(results, batch.notes), file=sys.stderr)
         for problem in problems:
             print(f"porter: check failed: {problem}", file=sys.stderr)
     failures = any(r.status == "failed" for r in results)
@@ -320,36 +321,7 @@ def _write(path: Path, text: str) -> None:
     """Write completely or not at all: a temporary file renamed into place."""
     if path.parent and not path.parent.exists():
         raise ConversionError("the output folder does not exist", str(path.parent))
-    temporary = path.with_name(f".{path.name}.porter-tmp")
-    temporary.write_text(text, encoding="utf-8")
-    temporary.replace(path)
-
-
-def report_json(results: list[FileResult]) -> dict[str, object]:
-    sites = [s for r in results for s in r.sites]
-    total = summarize(sites)
-    total["files"] = len(results)
-    return {"porter_version": __version__, "files": [r.to_json() for r in results], "summary": total}
-
-
-def summary_text(results: list[FileResult]) -> str:
-    sites = [s for r in results for s in r.sites]
-    summary = summarize(sites)
-    lines = [f"porter: {summary['converted']} sites converted, {summary['handover']} handed over "
-             f"to pandas, {summary['todo']} TODOs"]
-    todo_keys = summary["todo_by_key"]
-    assert isinstance(todo_keys, dict)
-    for key, count in list(todo_keys.items())[:8]:
-        lines.append(f"  TODO {count:>3} × {key}")
-    if len(todo_keys) > 8:
-        lines.append(f"  … and {len(todo_keys) - 8} more keys (see --report)")
-    lowest = [s for s in sites if s.status == "converted"]
-    if lowest:
-        low = min(lowest, key=lambda s: s.confidence)
-        where = next((r.source for r in results if low in r.sites), "")
-        lines.append(f"  lowest confidence {low.confidence:.2f}: {low.key} at {where}:{low.line}"
-                     + (f" ({low.message})" if low.message else ""))
-    return "\n".join(lines)
+    write_atomic(path, text.encode("utf-8"))
 
 
 if __name__ == "__main__":  # pragma: no cover

@@ -16,7 +16,7 @@ from pathlib import Path
 import sys
 
 from porter.api import convert_file
-from porter.cli import report_json, summary_text
+from porter.reports import report_json, summary_text
 from porter.model import FileResult, Options
 from porter.verify.api import verify
 from porter.verify.model import SideRun

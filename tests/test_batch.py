@@ -213,12 +213,11 @@ def test_interrupted_in_place_write_leaves_no_partial_file(src, monkeypatch, cap
         raise OSError(28, "No space left on device")
 
     monkeypatch.setattr(batch, "_fill", half_then_fail)
-    report = src.parent / "r.json"
-    assert main(["convert", str(src), "--in-place", "-j", "1", "-q", "--report", str(report)]) == 1
+    results = batch.run_batch([str(src)], batch.BatchOptions(in_place=True, jobs=1))
     assert (src / "main.py").read_bytes() == original
     assert not [p for p in src.rglob("*") if p.name.endswith(".porter-tmp")]
-    entry = next(e for e in json.loads(report.read_text())["files"] if e["source"].endswith("main.py"))
-    assert entry["status"] == "failed" and "No space left on device" in entry["error"]
+    entry = next(r for r in results.results if r.source.endswith("main.py"))
+    assert entry.status == "failed" and "No space left on device" in (entry.error or "")
 
 
 def test_shards_partition_the_file_list(src):
