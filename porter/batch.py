@@ -63,6 +63,7 @@ class BatchOptions:
     in_place: bool = False
     output_dir: str | None = None
     progress: bool = False
+    keep_text: bool = False  # scan mode: keep the texts of changed files (the HTML review)
 
 
 @dataclass
@@ -333,7 +334,7 @@ def run_batch(paths: list[str], options: BatchOptions) -> BatchResult:
                 raise ConversionError("the output folder must not contain the sources "
                                       "(use --in-place to rewrite them)", options.output_dir)
     discovery = discover(paths, options)
-    keep_text = options.mode == "convert"
+    keep_text = options.mode == "convert" or options.keep_text
     results = process_items(discovery.items, options.options, jobs=options.jobs,
                             max_size=options.max_size, keep_text=keep_text,
                             progress=options.progress)

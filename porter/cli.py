@@ -57,6 +57,47 @@ def build_parser() -> argparse.ArgumentParser:
                          help="then run both versions on --data and compare their outputs "
                               "(runs the script: same trust as running it yourself)")
     _verify_options(convert)
+    convert.add_argument("--html", metavar="REVIEW.html",
+                         help="also write the side-by-side review page of the conversion")
+
+    review = commands.add_parser(
+        "review", help="write a side-by-side HTML review of a conversion, write nothing else",
+        description=(
+            "Convert a script or a folder in memory and write one self-contained HTML page: "
+            "original and converted code side by side, every site with its confidence and "
+            "what it handles, every TODO with its advice, and the verdicts under --verify. "
+            "Exit codes: 0 done; 2 bad usage or bad input."))
+    review.add_argument("input", metavar="SRC", help="the pandas script, or a folder")
+    review.add_argument("-o", "--output", required=True, metavar="REVIEW.html",
+                        help="where to write the page")
+    review.add_argument("--data", metavar="DIR",
+                        help="folder the scripts run in: input schemas are read from it")
+    review.add_argument("--min-confidence", type=_confidence, default=None, metavar="X",
+                        help="rewrites below this confidence become TODOs carrying the suggestion")
+    review.add_argument("--low", type=_confidence, default=0.9, metavar="X",
+                        help="sites below this confidence get a distinct mark (default 0.9)")
+    review.add_argument("--verify", action="store_true",
+                        help="run each converted script and its original on --data and show "
+                             "the verdicts (runs the scripts: same trust as running them)")
+    review.add_argument("--title", default=None, help="the page's title")
+    review.add_argument("-q", "--quiet", action="store_true", help="no summary on stderr")
+    folder = review.add_argument_group("folders")
+    folder.add_argument("-j", "--jobs", type=_positive, default=None, metavar="N",
+                        help="parallel processes (default: all cores)")
+    folder.add_argument("--exclude", action="append", default=[], metavar="GLOB",
+                        help="skip paths matching GLOB; repeatable")
+    folder.add_argument("--max-size", type=_size, default=DEFAULT_MAX_SIZE, metavar="SIZE",
+                        help="files larger than this fail (default 2MB)")
+    group = review.add_argument_group("verification")
+    group.add_argument("--timeout", type=float, default=600.0, metavar="S",
+                       help="seconds each side may run (default 600)")
+    group.add_argument("--memory-limit", type=int, default=None, metavar="MB",
+                       help="address-space limit of each side, in MiB")
+    group.add_argument("--rtol", type=float, default=1e-9,
+                       help="relative tolerance for floats (default 1e-9)")
+    group.add_argument("--ignore-order", action="store_true",
+                       help="compare tables as multisets of rows")
+    review.set_defaults(fail_on_todo=None, keep=False)
 
     verify = commands.add_parser(
         "verify", help="run a script and its conversion on the same data and compare outputs",
@@ -181,8 +222,10 @@ def sarif_available() -> bool:
 def main(argv: list[str] | None = None) -> int:
     args = build_parser().parse_args(argv)
     try:
-        if args.command in ("convert", "scan"):
+        if args.command in ("convert", "scan", "review"):
             _apply_config(args, load_config())
+        if args.command == "review":
+            return review_command(args)
         if args.command == "convert":
             if args.check or args.in_place or Path(args.input).is_dir():
                 return batch_command(args, [args.input])
@@ -241,9 +284,11 @@ def batch_command(args: argparse.Namespace, paths: list[str]) -> int:
         jobs=args.jobs, max_size=args.max_size, excludes=tuple(args.exclude), shard=args.shard,
         in_place=getattr(args, "in_place", False) and not scanning,
         output_dir=None if scanning or args.in_place else args.output,
-        progress=not args.quiet)
+        progress=not args.quiet, keep_text=bool(getattr(args, "html", None)))
     batch = run_batch(paths, options)
     results = batch.results
+    if getattr(args, "html", None):
+        _write_review(Path(args.html), ", ".join(paths), results, None, folder=True)
     if args.report:
         if getattr(args, "format", "json") == "sarif":
             from porter.sarif import to_sarif
@@ -291,17 +336,51 @@ def convert(args: argparse.Namespace) -> int:
     if not args.quiet:
         print(summary_text([result]), file=sys.stderr)
     code = EXIT_TODO if args.fail_on_todo and result.todos else EXIT_OK
+    verdicts = None
     if args.verify:
         if args.data is None:
             raise ConversionError("--verify needs --data DIR (the folder the script runs in)")
-        verified = run_verify(args, args.input, result.converted_text, output or "(converted)",
-                              sys.stderr)
+        verified, verdict = _run_verify(args, args.input, result.converted_text,
+                                        output or "(converted)", sys.stderr)
+        verdicts = {result.source: verdict}
         code = max(code, verified)
+    if args.html:
+        _write_review(Path(args.html), args.input, [result], verdicts, folder=False)
     return code
+
+
+def review_command(args: argparse.Namespace) -> int:
+    from porter.review.run import ReviewOptions, review
+    from porter.verify.api import VerifyOptions
+    done = review(args.input, ReviewOptions(
+        options=Options(min_confidence=args.min_confidence, data_dir=args.data),
+        low=args.low, verify=args.verify,
+        verify_options=VerifyOptions(timeout=args.timeout, memory_mib=args.memory_limit,
+                                     rtol=args.rtol, ignore_order=args.ignore_order),
+        jobs=args.jobs, excludes=tuple(args.exclude), max_size=args.max_size, title=args.title,
+        progress=not args.quiet))
+    _write(Path(args.output), done.html)
+    if not args.quiet:
+        todos = sum(len(r.todos) for r in done.results)
+        print(f"porter: review of {len(done.results)} file(s), {todos} TODO(s) written to "
+              f"{args.output}", file=sys.stderr)
+    return EXIT_OK
+
+
+def _write_review(path: Path, source: str, results: list, verdicts: dict | None, *,
+                  folder: bool) -> None:
+    from porter.review import render_review
+    _write(path, render_review(results, verdicts=verdicts, folder=folder,
+                               title=f"porter review of {source}"))
 
 
 def run_verify(args: argparse.Namespace, original: str, converted: str | None, label: str,
                stream: TextIO) -> int:
+    return _run_verify(args, original, converted, label, stream)[0]
+
+
+def _run_verify(args: argparse.Namespace, original: str, converted: str | None, label: str,
+                stream: TextIO):  # type: ignore[no-untyped-def]
     from porter.verify.api import VerifyOptions, verify
     from porter.verify.text import kept_folders, render
     options = VerifyOptions(timeout=args.timeout, memory_mib=args.memory_limit, rtol=args.rtol,
@@ -313,8 +392,8 @@ def run_verify(args: argparse.Namespace, original: str, converted: str | None, l
     if args.json:
         _write(Path(args.json), json.dumps(result.to_json(), indent=2) + "\n")
     if result.verdict == "same":
-        return EXIT_OK
-    return EXIT_USAGE if result.verdict == "error" else EXIT_TODO
+        return EXIT_OK, result
+    return (EXIT_USAGE if result.verdict == "error" else EXIT_TODO), result
 
 
 def _write(path: Path, text: str) -> None:

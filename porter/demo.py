@@ -3,7 +3,8 @@ both versions on the script's sample data, and show what porter did.
 
     python -m porter.demo [--out build/demo] [--no-verify]
 
-Each converted script is written beside a JSON report in the output folder; the terminal shows
+Each converted script is written beside a JSON report and a side-by-side HTML review page
+(review.html) in the output folder; the terminal shows
 one line per script (sites, TODOs, verdict, time and peak memory of both versions) and the
 overall summary. Verifying runs the corpus scripts.
 """
@@ -19,7 +20,8 @@ from porter.api import convert_file
 from porter.reports import report_json, summary_text
 from porter.model import FileResult, Options
 from porter.verify.api import verify
-from porter.verify.model import SideRun
+from porter.review import render_review
+from porter.verify.model import SideRun, VerifyResult
 
 ROOT = Path(__file__).resolve().parent.parent
 
@@ -47,6 +49,7 @@ def main(argv: list[str] | None = None) -> int:
     print(f"{'script':<24} {'sites':>5} {'TODO':>4} {'lowest':>6}  {'verdict':<8} "
           f"{'pandas':>16} {'polars':>16}")
     verdicts = []
+    verdicts_by_source: dict[str, VerifyResult] = {}
     for script in demo_scripts(args.corpus):
         target = args.out / script.name
         # each script runs in its own folder: its input schemas are read from there
@@ -61,17 +64,22 @@ def main(argv: list[str] | None = None) -> int:
         if not args.no_verify:
             verdict = verify(script, result.converted_text, script.parent)
             verdicts.append(verdict.verdict)
+            verdicts_by_source[result.source] = verdict
             line += (f"{verdict.verdict:<8} {_cost(verdict.original):>16} "
                      f"{_cost(verdict.converted):>16}")
         print(line, flush=True)
     (args.out / "report.json").write_text(json.dumps(report_json(results), indent=2) + "\n",
                                           encoding="utf-8")
+    page = render_review(results, verdicts=verdicts_by_source or None,
+                         title="porter review: the demo corpus")
+    (args.out / "review.html").write_text(page, encoding="utf-8")
     print()
     print(summary_text(results))
     if verdicts:
         same = sum(v == "same" for v in verdicts)
         print(f"verified: {same} of {len(verdicts)} conversions compute the same outputs as pandas")
-    print(f"\nConverted scripts and report.json are in {args.out}")
+    print(f"\nConverted scripts, report.json and review.html (open it in a browser) are in "
+          f"{args.out}")
     print(f"Try: diff -u {args.corpus / 'orchard_harvest' / 'orchard_harvest.py'} "
           f"{args.out / 'orchard_harvest.py'}")
     return 0 if all(v == "same" for v in verdicts) else 1
