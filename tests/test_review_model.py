@@ -103,7 +103,15 @@ def test_a_todo_marker_without_a_site_is_still_listed():
 def test_mapping_differences_are_attached_to_sites():
     page = build_page([result()])
     read_csv = next(s for s in page.files[0].sites if s.key == "pd.read_csv")
-    assert read_csv.handles and "handles:" in read_csv.tooltip
+    assert read_csv.handles and read_csv.key in read_csv.tooltip
+
+
+def test_what_a_rule_handles_is_written_once_per_key():
+    # three files using read_csv: the handles text appears once, each site links to it
+    html = render_review([result(), result(), result()])
+    handles = build_page([result()]).files[0].sites[0].handles
+    assert handles and html.count(f"<li>{handles[0]}</li>") == 1
+    assert 'href="#key-pd.read_csv"' in html and 'id="key-pd.read_csv"' in html
 
 
 @pytest.mark.parametrize("confidence, level", [(1.0, "high"), (0.95, "high"), (0.949, "medium"),

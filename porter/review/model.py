@@ -60,10 +60,7 @@ class SiteView:
         parts = [f"{self.key} · {self.rule} · {self.status} · confidence {self.confidence:.2f}"]
         if self.message:
             parts.append(self.message)
-        parts += [f"handles: {h}" for h in self.handles]
-        if self.notes:
-            parts.append(self.notes)
-        return "\n".join(parts)
+        return "\n".join(parts)  # what the rule handles is told once per page, by key
 
 
 @dataclass

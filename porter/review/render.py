@@ -17,7 +17,7 @@ from pygments.token import Token
 from porter import __version__
 from porter.mapping import MappingTable
 from porter.model import FileResult
-from porter.review.model import CONTEXT, DEFAULT_LOW, Page, build_page
+from porter.review.model import CONTEXT, DEFAULT_LOW, Page, SiteView, build_page
 from porter.verify.model import VerifyResult
 
 PYGMENTS_STYLE = "friendly"
@@ -70,7 +70,18 @@ def render_page(page: Page) -> str:
     template = _environment().get_template("review.html.j2")
     return template.render(page=page, version=__version__, css=Markup(_css()),
                            script=Markup(_script()), pygments_css=Markup(pygments_css()),
-                           highlight=_highlighter(page))
+                           highlight=_highlighter(page), differences=_differences(page))
+
+
+def _differences(page: Page) -> list[SiteView]:
+    """One site per mapping key used on the page: what its rule handles is printed once, at
+    the end, and every site of that key links to it (a page of hundreds of files stays small)."""
+    first: dict[str, SiteView] = {}
+    for view in page.files:
+        for site in view.sites:
+            if site.handles or site.notes or site.polars or site.advice:
+                first.setdefault(site.key, site)
+    return [first[key] for key in sorted(first)]
 
 
 def _css() -> str:
