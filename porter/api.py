@@ -65,13 +65,17 @@ def convert_file(path: str | Path, *, options: Options | None = None,
         raise ConversionError("no such file", str(path))
     if path.is_dir():
         raise ConversionError("is a folder, not a Python script", str(path))
+    return convert_source(read_text(path), path=str(path), options=options, output=output)
+
+
+def read_text(path: Path) -> str:
+    """A script's text; a file that is not UTF-8 or cannot be read is a ConversionError."""
     try:
-        text = path.read_text(encoding="utf-8")
+        return path.read_text(encoding="utf-8")
     except UnicodeDecodeError as exc:
         raise ConversionError(f"not UTF-8 text ({exc.reason} at byte {exc.start})", str(path)) from None
     except OSError as exc:
         raise ConversionError(exc.strerror or str(exc), str(path)) from None
-    return convert_source(text, path=str(path), options=options, output=output)
 
 
 def _site(draft: SiteDraft) -> Site:

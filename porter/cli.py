@@ -88,15 +88,7 @@ def build_parser() -> argparse.ArgumentParser:
                         help="skip paths matching GLOB; repeatable")
     folder.add_argument("--max-size", type=_size, default=DEFAULT_MAX_SIZE, metavar="SIZE",
                         help="files larger than this fail (default 2MB)")
-    group = review.add_argument_group("verification")
-    group.add_argument("--timeout", type=float, default=600.0, metavar="S",
-                       help="seconds each side may run (default 600)")
-    group.add_argument("--memory-limit", type=int, default=None, metavar="MB",
-                       help="address-space limit of each side, in MiB")
-    group.add_argument("--rtol", type=float, default=1e-9,
-                       help="relative tolerance for floats (default 1e-9)")
-    group.add_argument("--ignore-order", action="store_true",
-                       help="compare tables as multisets of rows")
+    _verify_options(review, outputs=False)
     review.set_defaults(fail_on_todo=None, keep=False)
 
     verify = commands.add_parser(
@@ -163,7 +155,8 @@ def _analysis_options(parser: argparse.ArgumentParser) -> None:
                         help="process only the K-th of N slices of the sorted file list")
 
 
-def _verify_options(parser: argparse.ArgumentParser) -> None:
+def _verify_options(parser: argparse.ArgumentParser, outputs: bool = True) -> None:
+    """The verification options; `outputs`: also --json and --keep."""
     group = parser.add_argument_group("verification")
     group.add_argument("--timeout", type=float, default=600.0, metavar="S",
                        help="seconds each side may run (default 600)")
@@ -173,6 +166,8 @@ def _verify_options(parser: argparse.ArgumentParser) -> None:
                        help="relative tolerance for floats (default 1e-9)")
     group.add_argument("--ignore-order", action="store_true",
                        help="compare tables as multisets of rows")
+    if not outputs:
+        return
     group.add_argument("--json", metavar="FILE", help="write the verdict as JSON")
     group.add_argument("--keep", action="store_true",
                        help="keep both working copies and print where they are")

@@ -20,7 +20,7 @@ import re
 import libcst as cst
 import nbformat
 
-from porter.api import convert_source
+from porter.api import convert_source, read_text
 from porter.model import ConversionError, FileResult, Options, Site
 
 MAGIC_START = re.compile(r"\s*(?:[%!?]|\w[\w.]*\s*=\s*[%!])")
@@ -31,13 +31,7 @@ def convert_notebook(path: str | Path, options: Options | None = None, *,
                      output: str | None = None) -> FileResult:
     """Convert the notebook at ``path``; raises ConversionError for a file that is not one."""
     path = Path(path)
-    try:
-        text = path.read_text(encoding="utf-8")
-    except UnicodeDecodeError as exc:
-        raise ConversionError(f"not UTF-8 text ({exc.reason} at byte {exc.start})", str(path)) from None
-    except OSError as exc:
-        raise ConversionError(exc.strerror or str(exc), str(path)) from None
-    return convert_notebook_text(text, str(path), options, output=output)
+    return convert_notebook_text(read_text(path), str(path), options, output=output)
 
 
 def convert_notebook_text(text: str, path: str | None, options: Options | None = None, *,
