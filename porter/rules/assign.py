@@ -12,7 +12,8 @@ from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.io import polars_dtype
 from porter.translate.context import (
-    PandasCall, RuleContext, Unsupported, derive, derived_column, with_column_updates,
+    PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
+    with_column_updates,
 )
 from porter.translate.values import Column, Frame, Opaque, PandasValue, Scalar, Value
 
@@ -179,7 +180,7 @@ def drop(call: PandasCall, ctx: RuleContext) -> Value:
         if call.const("axis", None, 0) not in (1, "columns"):
             raise Unsupported("dropping rows by index label")
         names = call.const("labels", 0)
-    names = [names] if isinstance(names, str) else list(names)
+    names = column_names(names)
     columns = tuple(c for c in frame.columns if c not in names) if frame.columns is not None else None
     code = frame.code.method("drop", *names)
     return derive(frame, code, same_rows=True, columns=columns,
@@ -271,6 +272,8 @@ def astype(call: PandasCall, ctx: RuleContext) -> Value:
         return derived_column(receiver, code, dtype=dtype)
     assert isinstance(receiver, Frame)
     if isinstance(target, Opaque) and isinstance(target.const, dict):
+        if not all(isinstance(name, str) for name in target.const):
+            raise Unsupported("columns named by something other than text")
         items = []
         for name, kind in target.const.items():
             column = Column(emit.col(name), frame=receiver, name=name, dtype=receiver.dtype(name))

@@ -8,7 +8,9 @@ from typing import Any
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.translate.context import PandasCall, RuleContext, Unsupported, grouping_code
+from porter.translate.context import (
+    PandasCall, RuleContext, Unsupported, column_names, grouping_code,
+)
 from porter.translate.values import Column, Frame, Grouped, Module, Opaque, Scalar, Value
 
 AGGREGATIONS = ("sum", "mean", "median", "min", "max", "std", "var", "count", "nunique",
@@ -67,7 +69,7 @@ def groupby(call: PandasCall, ctx: RuleContext) -> Value:
         keys: list[str] = [by.name]
     else:
         keys_const = call.const("by", 0)
-        keys = [keys_const] if isinstance(keys_const, str) else list(keys_const)
+        keys = column_names(keys_const, "the group keys")
     if not all(isinstance(k, str) for k in keys):
         raise Unsupported("grouping by something other than column names")
     if call.const("observed", None, True) is not True:

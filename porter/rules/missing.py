@@ -9,7 +9,9 @@ from __future__ import annotations
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.translate.context import PandasCall, RuleContext, Unsupported, derive, derived_column
+from porter.translate.context import (
+    PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
+)
 from porter.translate.values import Column, Frame, Opaque, Scalar, Value
 
 
@@ -33,7 +35,7 @@ def _subset(call: PandasCall, frame: Frame) -> list[str] | None:
     subset = call.const("subset", None, None)
     if subset is None:
         return None
-    return [subset] if isinstance(subset, str) else list(subset)
+    return column_names(subset, "subset")
 
 
 @rule("frame.dropna")

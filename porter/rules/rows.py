@@ -8,7 +8,9 @@ from typing import Any
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.translate.context import PandasCall, RuleContext, Unsupported, derive, derived_column
+from porter.translate.context import (
+    PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
+)
 from porter.translate.values import Column, Frame, Opaque, Value
 
 KEEP = {"first": "first", "last": "last", False: "none"}
@@ -29,7 +31,7 @@ def drop_duplicates(call: PandasCall, ctx: RuleContext) -> Value:
     keep = call.const("keep", None, "first")
     if keep not in KEEP:
         raise Unsupported(f"keep={keep!r}")
-    args = [emit.names_arg([subset] if isinstance(subset, str) else subset)] if subset else []
+    args = [emit.names_arg(column_names(subset, "subset"))] if subset else []
     code = frame.code.method("unique", *args, keep=KEEP[keep], maintain_order=True)
     return derive(frame, code, same_rows=False, labels_intact=bool(call.const("ignore_index", None, False)))
 
@@ -63,7 +65,7 @@ def sort_values(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(frame, Frame)
     ctx.reject_unknown(call, "by", "ascending", "na_position", "kind", "ignore_index", positional=1)
     by = call.const("by", 0)
-    by = [by] if isinstance(by, str) else list(by)
+    by = column_names(by, "by")
     ascending = call.const("ascending", None, True)
     na_position = call.const("na_position", None, "last")
     code = frame.code.method("sort", emit.names_arg(by), **sort_args(by, ascending, na_position))
@@ -103,7 +105,7 @@ def nlargest(call: PandasCall, ctx: RuleContext) -> Value:
     keep = call.const("keep", None, "first")
     if keep != "first":
         raise Unsupported(f"keep={keep!r}")
-    columns = [columns] if isinstance(columns, str) else list(columns)
+    columns = column_names(columns)
     largest = call.name == "nlargest"
     kwargs: dict[str, object] = {"descending": True} if largest else {}
     kwargs |= {"nulls_last": True, "maintain_order": True}

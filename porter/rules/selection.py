@@ -174,7 +174,8 @@ def copy(call: PandasCall, ctx: RuleContext) -> Value:
 @rule("frame.columns")
 def columns(call: PandasCall, ctx: RuleContext) -> Value:
     """df.columns -> .collect_schema().names() (no data is read)."""
-    return Scalar(frame_of(call).code.method("collect_schema").method("names"), pytype="list[str]")
+    frame = frame_of(call)
+    return Scalar(frame.code.method("collect_schema").method("names"), pytype="list[str]", of=frame)
 
 
 @rule("frame.dtypes")

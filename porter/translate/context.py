@@ -221,6 +221,15 @@ def derived_column(base: Column, code: Code, *, dtype: str | None = None,
 PYTHON_DTYPES = {bool: "bool", int: "int", float: "float", str: "str"}
 
 
+def column_names(value: Any, what: str = "columns") -> list[str]:
+    """One column name or a list of them, as written in the call; anything else (labels that
+    are numbers, arrays, functions) is a TODO."""
+    names = [value] if isinstance(value, str) else value
+    if not isinstance(names, (list, tuple)) or not names or not all(isinstance(n, str) for n in names):
+        raise Unsupported(f"{what} must name columns by their (text) names")
+    return list(names)
+
+
 def value_dtype(value: Value) -> str | None:
     """porter's dtype name of a column or a literal, when known."""
     if isinstance(value, Column):

@@ -275,11 +275,15 @@ class _Walker:
                  for t, s in zip(texts, line.body)]
         new_lines = []
         statements = [stmt for part in parts for stmt in cst.parse_module(part + "\n").body]
+        last = len(statements) - 1
         for i, parsed in enumerate(statements):
             assert isinstance(parsed, cst.SimpleStatementLine)
-            if i == 0:
-                parsed = parsed.with_changes(leading_lines=[*line.leading_lines, *todo_lines])
-            if i == len(statements) - 1:
+            # the markers go on the last statement: when a frame is handed over to pandas
+            # first, that is the statement kept as written, which the TODOs are about
+            leading = [*(line.leading_lines if i == 0 else []), *(todo_lines if i == last else [])]
+            if leading:
+                parsed = parsed.with_changes(leading_lines=leading)
+            if i == last:
                 parsed = parsed.with_changes(trailing_whitespace=line.trailing_whitespace)
             new_lines.append(parsed)
         return new_lines
@@ -448,7 +452,11 @@ class _Walker:
         from porter.translate.handover import to_pandas
         env[name] = PandasValue(emit.atom(name))
         original = self.services.code_for(self.current_small).strip()
-        return f"{name} = {to_pandas(frame).text}\n{original}", list(result.sites)
+        # the whole statement stays pandas: what it uses is not converted after all
+        sites = [replace(s, status="todo", confidence=0.0,
+                         message="kept on pandas with the statement it is in")
+                 if s.status == "converted" else s for s in result.sites]
+        return f"{name} = {to_pandas(frame).text}\n{original}", sites
 
     def set_attr(self, target: cst.Attribute, value_node: cst.BaseExpression, env: dict[str, Value],
                  evaluator: Evaluator, indent: str) -> tuple[str | None, list[SiteDraft]] | None:
@@ -530,6 +538,12 @@ class _Walker:
         return emit.layout_chain(code, indent, f"{name} = "), list(value.sites)
 
 
+def _marked_key(comment: str) -> str | None:
+    if not comment.startswith(TODO_PREFIX):
+        return None
+    return comment[len(TODO_PREFIX):].split(":", 1)[0]
+
+
 def _is_collected(code: Code) -> bool:
     return code.text.endswith(".collect().lazy()")
 
@@ -576,18 +590,18 @@ def _merge(a: dict[str, Value], b: dict[str, Value]) -> dict[str, Value]:
 
 
 def _todo_comments(sites: list[SiteDraft], line: Any) -> list[cst.EmptyLine]:
-    existing = {el.comment.value for el in line.leading_lines if el.comment is not None}
+    """One marker per mapping key on a statement; a key already marked (by an earlier run of
+    porter) is not marked again, so converting converted code changes nothing."""
+    marked = {_marked_key(el.comment.value) for el in line.leading_lines if el.comment is not None}
     comments = []
     for site in sites:
-        if site.status != "todo":
+        if site.status != "todo" or site.key in marked:
             continue
         text = TODO_PREFIX + f"{site.key}: {site.message}"
         text = " ".join(text.split())
         if len(text) > MAX_COMMENT:
             text = text[: MAX_COMMENT - 1].rstrip() + "…"
-        if text in existing:
-            continue
-        existing.add(text)
+        marked.add(site.key)
         comments.append(cst.EmptyLine(comment=cst.Comment(text)))
         if site.suggestion:
             lines = site.suggestion.splitlines()

@@ -93,7 +93,15 @@ class Evaluator:
         return self.services.code_for(node)
 
     def opaque(self, node: cst.BaseExpression, const: Any = MISSING) -> Opaque:
-        return Opaque(Code(self.source(node), precedence(node)), const=const, node=node)
+        return Opaque(Code(self.standalone(node), precedence(node)), const=const, node=node)
+
+    def standalone(self, node: cst.CSTNode) -> str:
+        """Source text that stays valid wherever it is written: a generator that was the only
+        argument of a call (`f(x for x in y)`) borrows the call's parentheses."""
+        text = self.source(node)
+        if isinstance(node, cst.GeneratorExp) and not node.lpar:
+            return f"({text})"
+        return text
 
     # -- names, literals ----------------------------------------------------------------------
     def _eval_Name(self, node: cst.Name) -> Value:
@@ -197,14 +205,14 @@ class Evaluator:
         """`df.columns.<attr>`: porter's column names are a list, pandas' an Index."""
         if attr in ("tolist", "to_list", "values"):
             return BoundMethod(names.code, receiver=names, name=attr) if attr != "values" else names
-        alias = next((n for n, v in self.env.items() if isinstance(v, Module) and v.qualname == "pandas"), None)
+        if names.of is None:
+            return self.generic(node)
         line, end_line = self.services.position(node)
         site = SiteDraft("frame.columns.index", "todo", "todo", 0.0,
                          f"pandas' Index.{attr} on the column names: porter's names are a list",
                          line, end_line)
-        if alias is None:
-            return self.generic(node)
-        return PandasValue(Code(f"{alias}.Index({names.code.text}).{attr}"), sites=names.sites + (site,))
+        code = handover.to_pandas(names.of).attr("columns").attr(attr)
+        return PandasValue(code, sites=names.sites + (site,))
 
     # -- calls ----------------------------------------------------------------------------------
     def _eval_Call(self, node: cst.Call) -> Value:
@@ -494,9 +502,9 @@ class Evaluator:
         new_node = node.visit(rewriter)
         if not rewriter.changed:
             if rewriter.pandas_inside:
-                return PandasValue(Code(self.source(node), precedence(node)),
+                return PandasValue(Code(self.standalone(node), precedence(node)),
                                    sites=tuple(rewriter.sites))
-            return Opaque(Code(self.source(node), precedence(node)), node=node,
+            return Opaque(Code(self.standalone(node), precedence(node)), node=node,
                           sites=tuple(rewriter.sites))
         text = self.source(new_node)  # type: ignore[arg-type]
         if rewriter.pandas_inside:

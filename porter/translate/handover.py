@@ -13,7 +13,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.translate.context import PandasCall
 from porter.translate.values import (
-    Accessor, Column, Frame, Grouped, Indexer, Items, Opaque, Value,
+    Accessor, Column, Frame, Grouped, Indexer, Items, Opaque, Value, is_pandas,
 )
 
 
@@ -94,6 +94,9 @@ def for_display(value: Value) -> Code:
 def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
                     node: cst.CSTNode) -> Code:
     """The original pandas call, run on pandas versions of its inputs."""
+    inputs = [call.receiver, *call.args, *call.kwargs.values()]
+    if not any(v is not None and is_pandas(v) for v in inputs):
+        return Code(source(node))  # nothing to hand over: the call stays exactly as written
     if isinstance(node, cst.Call):
         args = []
         for arg in node.args:

@@ -104,6 +104,7 @@ class Scalar(Value):
 
     pytype: str | None = field(default=None, kw_only=True)
     agg: Column | None = field(default=None, kw_only=True)  # the reduction as an expression of its frame
+    of: Frame | None = field(default=None, kw_only=True)  # the frame it describes (its column names)
 
 
 @dataclass(frozen=True)
