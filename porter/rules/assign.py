@@ -180,10 +180,13 @@ def drop(call: PandasCall, ctx: RuleContext) -> Value:
         if call.const("axis", None, 0) not in (1, "columns"):
             raise Unsupported("dropping rows by index label")
         names = call.const("labels", 0)
-    names = column_names(names)
+    return dropped(frame, column_names(names))
+
+
+def dropped(frame: Frame, names: list[str]) -> Frame:
+    """`frame` without the columns `names` (what porter knows of the others is kept)."""
     columns = tuple(c for c in frame.columns if c not in names) if frame.columns is not None else None
-    code = frame.code.method("drop", *names)
-    return derive(frame, code, same_rows=True, columns=columns,
+    return derive(frame, frame.code.method("drop", *names), same_rows=True, columns=columns,
                   dtypes=tuple((k, v) for k, v in frame.dtypes if k not in names))
 
 
@@ -195,8 +198,7 @@ def delitem(call: PandasCall, ctx: RuleContext) -> Value:
     key = call.args[0]
     if not (isinstance(key, Opaque) and isinstance(key.const, str)):
         raise Unsupported("deleting a computed key")
-    columns = tuple(c for c in frame.columns if c != key.const) if frame.columns is not None else None
-    return derive(frame, frame.code.method("drop", key.const), same_rows=True, columns=columns)
+    return dropped(frame, [key.const])
 
 
 @rule("frame.set_columns")
