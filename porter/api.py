@@ -2,17 +2,24 @@
 
 from __future__ import annotations
 
+import ast
 from pathlib import Path
 import re
+import sys
+import traceback
 
 import libcst as cst
 
 from porter.mapping import MappingTable, load_table
-from porter.model import ConversionError, FileResult, Options, Site, SiteDraft
+from porter.emit.fstrings import fits
+from porter.model import ConversionError, FileResult, InternalError, Options, Site, SiteDraft
 from porter.rules import registry
 from porter.translate.engine import translate_module
 from porter.translate.evaluate import Services
 
+
+# The oldest Python porter supports (pyproject's requires-python): every output must parse on it.
+OLDEST_PYTHON = (3, 11)
 
 # Without these in the script, no frame can hold a datetime column (CSV scans do not infer dates).
 DATETIME_HINTS = re.compile(r"parse_dates|to_datetime|read_parquet|read_excel|read_json|read_sql|"
@@ -45,8 +52,13 @@ def convert_source(text: str, *, path: str | None = None, options: Options | Non
         schema_lookup=schema_lookup,
         datetimes_possible=bool(DATETIME_HINTS.search(text)),
     )
-    translation = translate_module(module, services)
-    converted = translation.module.code
+    try:
+        translation = translate_module(module, services)
+        converted = translation.module.code
+    except Exception as exc:  # a bug in porter: this file fails, with where and why
+        raise InternalError(f"{type(exc).__name__}: {exc}", path, services.statement_lines[0] or None,
+                            traceback.format_exc()) from None
+    check_parses(converted, text, path)
     sites = tuple(_site(d) for d in translation.sites)
     return FileResult(
         source=path or "<stdin>",
@@ -56,6 +68,52 @@ def convert_source(text: str, *, path: str | None = None, options: Options | Non
         sites=sites,
         status="converted" if converted != text else "unchanged",
     )
+
+
+def check_parses(converted: str, original: str, path: str | None) -> None:
+    """Raise InternalError when porter's output does not parse on the oldest supported Python
+    (unless the input itself needs a newer one)."""
+    problem = _syntax_problem(converted)
+    if problem is None or _syntax_problem(original) is not None:
+        return
+    line, message = problem
+    raise InternalError(f"the converted script does not parse on Python "
+                        f"{'.'.join(map(str, OLDEST_PYTHON))}: {message}", path, line)
+
+
+def _syntax_problem(text: str) -> tuple[int | None, str] | None:
+    try:
+        ast.parse(text, feature_version=OLDEST_PYTHON)
+    except SyntaxError as exc:
+        return exc.lineno, exc.msg
+    # Newer interpreters accept what 3.11 does not between an f-string's braces (quotes of the
+    # f-string itself, backslashes, comments), whatever feature_version says: check that too.
+    for fstring in _fstrings(text) if sys.version_info >= (3, 12) else ():
+        for part in _expressions(fstring):
+            if not fits(cst.Module([]).code_for_node(part.expression), fstring.end):
+                return None, "an f-string's braces hold its own quote, a backslash or a comment"
+    return None
+
+
+def _fstrings(text: str) -> list[cst.FormattedString]:
+    if "f'" not in text.lower() and 'f"' not in text.lower():
+        return []
+    found: list[cst.FormattedString] = []
+
+    class Finder(cst.CSTVisitor):
+        def visit_FormattedString(self, node: cst.FormattedString) -> None:
+            found.append(node)
+
+    cst.parse_module(text).visit(Finder())
+    return found
+
+
+def _expressions(fstring: cst.FormattedString) -> list[cst.FormattedStringExpression]:
+    parts = [p for p in fstring.parts if isinstance(p, cst.FormattedStringExpression)]
+    for part in list(parts):
+        if part.format_spec:
+            parts += [p for p in part.format_spec if isinstance(p, cst.FormattedStringExpression)]
+    return parts
 
 
 def convert_file(path: str | Path, *, options: Options | None = None,

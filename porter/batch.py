@@ -20,10 +20,11 @@ import stat
 import subprocess
 import sys
 import tempfile
+import traceback
 from typing import Iterable
 
 from porter.api import convert_source
-from porter.model import ConversionError, FileResult, Options
+from porter.model import ConversionError, FileResult, InternalError, Options
 from porter.reports import TODO_MARKER, Mode
 
 
@@ -260,8 +261,13 @@ def process_file(item: Item, options: Options, max_size: int, keep_text: bool) -
         return failed(item, _reason(exc))
     except OSError as exc:
         return failed(item, f"cannot read: {exc.strerror or exc}")
-    except Exception as exc:  # a bug in porter: report it for this file, go on with the rest
-        return failed(item, f"crash inside porter: {type(exc).__name__}: {exc}")
+    except InternalError as exc:  # a bug in porter: report it for this file, go on with the rest
+        where = f"line {exc.line}: " if exc.line else ""
+        return replace(failed(item, f"{where}internal error: please report ({exc.detail})"),
+                       traceback=exc.traceback or None)
+    except Exception as exc:  # noqa: BLE001 - outside the translation (notebook cells, reading)
+        return replace(failed(item, f"internal error: please report ({type(exc).__name__}: {exc})"),
+                       traceback=traceback.format_exc())
     if not (keep_text and result.status == "converted"):
         result = replace(result, original_text=_with_markers(result.original_text),
                          converted_text="")

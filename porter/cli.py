@@ -19,9 +19,10 @@ from porter.reports import (check_problems, folder_report, folder_summary_text, 
                             report_json, scan_text, summary_text)
 from porter.config import Config, load_config
 from porter.mapping import MappingFileError
-from porter.model import ConversionError, Options
+from porter.model import ConversionError, FileResult, InternalError, Options
 
 EXIT_OK, EXIT_TODO, EXIT_USAGE = 0, 1, 2
+EXIT_INTERNAL = 2  # an internal error: never 1, which means "TODOs remain" under --fail-on-todo
 
 
 class _Parser(argparse.ArgumentParser):
@@ -81,6 +82,7 @@ def build_parser() -> argparse.ArgumentParser:
                              "the verdicts (runs the scripts: same trust as running them)")
     review.add_argument("--title", default=None, help="the page's title")
     review.add_argument("-q", "--quiet", action="store_true", help="no summary on stderr")
+    _debug_option(review)
     folder = review.add_argument_group("folders")
     folder.add_argument("-j", "--jobs", type=_positive, default=None, metavar="N",
                         help="parallel processes (default: all cores)")
@@ -104,6 +106,7 @@ def build_parser() -> argparse.ArgumentParser:
     verify.add_argument("--data", metavar="DIR", required=True,
                         help="the folder the script runs in (copied; never written)")
     _verify_options(verify)
+    _debug_option(verify)
 
     scan = commands.add_parser(
         "scan", help="readiness report: what porter would convert, write nothing",
@@ -128,6 +131,12 @@ def build_parser() -> argparse.ArgumentParser:
     return parser
 
 
+def _debug_option(parser: argparse.ArgumentParser) -> None:
+    parser.add_argument("--debug", action="store_true",
+                        help="on an internal error, print porter's traceback too (it is always "
+                             "in the --report)")
+
+
 def _analysis_options(parser: argparse.ArgumentParser) -> None:
     """Options shared by convert and scan; None means: take [tool.porter] or the default."""
     parser.add_argument("--report", metavar="FILE.json", help="write the JSON report here")
@@ -138,6 +147,7 @@ def _analysis_options(parser: argparse.ArgumentParser) -> None:
                         help="rewrites below this confidence become TODOs carrying the suggestion")
     parser.add_argument("--data", metavar="DIR",
                         help="folder the script runs in: input schemas are read from it (no data loaded)")
+    _debug_option(parser)
     parser.add_argument("--fail-on-todo", action=argparse.BooleanOptionalAction, default=None,
                         help="exit 1 when TODOs remain")
     parser.add_argument("--check", action="store_true",
@@ -245,6 +255,11 @@ def main(argv: list[str] | None = None) -> int:
     except MappingFileError as exc:
         print(f"porter: mapping table: {exc}", file=sys.stderr)
         return EXIT_USAGE
+    except InternalError as exc:  # a bug in porter: say where, keep the traceback for --debug
+        print(f"porter: {exc}", file=sys.stderr)
+        if getattr(args, "debug", False) and exc.traceback:
+            print(exc.traceback, file=sys.stderr, end="")
+        return EXIT_INTERNAL
     return EXIT_USAGE
 
 
@@ -303,6 +318,12 @@ def batch_command(args: argparse.Namespace, paths: list[str]) -> int:
             print(f"porter: check failed: {problem}", file=sys.stderr)
     failures = any(r.status == "failed" for r in results)
     todos = args.fail_on_todo and any(r.todos for r in results)
+    if getattr(args, "debug", False):
+        for result in results:
+            if result.traceback:
+                print(f"porter: {result.source}:\n{result.traceback}", file=sys.stderr, end="")
+    if any(r.traceback for r in results):
+        return EXIT_INTERNAL
     return EXIT_TODO if failures or todos or problems else EXIT_OK
 
 
@@ -311,7 +332,13 @@ def convert(args: argparse.Namespace) -> int:
         raise ConversionError("no such folder", args.data)
     options = Options(min_confidence=args.min_confidence, data_dir=args.data)
     output = None if args.diff or args.output in (None, "-") else args.output
-    result = convert_file(args.input, options=options, output=output)
+    try:
+        result = convert_file(args.input, options=options, output=output)
+    except InternalError as exc:  # nothing is written but the report, which keeps the traceback
+        if args.report:
+            failed = FileResult(args.input, None, "", "", (), "failed", str(exc), exc.traceback)
+            _write(Path(args.report), json.dumps(report_json([failed]), indent=2) + "\n")
+        raise
     if args.diff:
         sys.stdout.writelines(difflib.unified_diff(
             result.original_text.splitlines(keepends=True),

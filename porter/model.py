@@ -64,6 +64,7 @@ class FileResult:
     sites: tuple[Site, ...]
     status: Literal["converted", "unchanged", "failed"] = "converted"
     error: str | None = None
+    traceback: str | None = None  # a failure inside porter: where it happened, for the report
 
     @property
     def todos(self) -> tuple[Site, ...]:
@@ -82,6 +83,8 @@ class FileResult:
         }
         if self.error:
             data["error"] = self.error
+        if self.traceback:
+            data["traceback"] = self.traceback
         return data
 
 
@@ -115,6 +118,22 @@ class ConversionError(Exception):
             if self.column is not None:
                 where += f":{self.column}"
         return f"{where}: {self.message}"
+
+
+@dataclass
+class InternalError(Exception):
+    """A bug in porter met while converting one file: the file fails, nothing is written."""
+
+    detail: str
+    path: str | None = None
+    line: int | None = None
+    traceback: str = ""
+
+    def __str__(self) -> str:
+        where = self.path or "<input>"
+        if self.line:
+            where += f":{self.line}"
+        return f"{where}: internal error: please report ({self.detail})"
 
 
 @dataclass(frozen=True)

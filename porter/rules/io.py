@@ -9,7 +9,8 @@ from typing import Any
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.rules.io_options import CSV_DATETIMES_CONSTANT, DTYPES, NA_CONSTANT, PANDAS_NA_TOKENS
+from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, DTYPES, NA_CONSTANT, PANDAS_NA_TOKENS,
+                                     is_number, na_value_texts)
 from porter.translate import handover
 from porter.translate.context import PandasCall, RuleContext, Unsupported, derive, select_columns
 from porter.translate.values import Frame, Module, Opaque, Scalar, Value
@@ -55,22 +56,25 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     source = call.arg("filepath_or_buffer", 0)
     options: dict[str, Any] = {}
     kwargs: dict[str, object] = {}
-    sep = call.const("sep", None, None) or call.const("delimiter", None, None)
+    sep = call.const("sep", None, None, kinds=(str,)) or call.const("delimiter", None, None, kinds=(str,))
     if sep is not None:
         if len(sep) != 1:
             raise ctx.todo(f"separator {sep!r} is not a single character (pandas reads it as a regex)")
         if sep != ",":
             kwargs["separator"] = sep
         options["sep"] = sep
-    encoding = call.const("encoding", None, None)
+    encoding = call.const("encoding", None, None, kinds=(str,))
     if encoding is not None and encoding.lower().replace("-", "").replace("_", "") not in ("utf8", "utf8sig"):
         raise ctx.todo(f"encoding {encoding!r}: Polars reads UTF-8 only; re-encode the file first")
-    na_values = call.const("na_values", None, None)
+    na_values = call.const_values("na_values")
     nulls: object = emit.atom(NA_CONSTANT)
     if na_values is not None:
-        if isinstance(na_values, dict):
-            raise ctx.todo("per-column na_values have no scan option")
-        extra = [na_values] if isinstance(na_values, str) else [str(v) for v in na_values]
+        extra = na_value_texts(na_values)
+        if any(is_number(v) for v in na_values):
+            # pandas compares a numeric column with the number (-1.00 is missing too); Polars
+            # matches the text, so porter lists the usual spellings (-1, -1.0)
+            ctx.lower("a number in na_values is missing in pandas however it is written "
+                      "(-1.00); Polars matches the spellings listed", 0.9)
         nulls = emit.binop(emit.atom(NA_CONSTANT), "+", [v for v in extra if v not in PANDAS_NA_TOKENS])
         options["na_values"] = extra
     kwargs["null_values"] = nulls
@@ -91,13 +95,13 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         options["dtype"] = dict(call.kwargs["dtype"].const)  # type: ignore[union-attr]
         kwargs["schema_overrides"] = overrides
     kwargs["infer_schema_length"] = None
-    skiprows = call.const("skiprows", None, None)
+    skiprows = call.const("skiprows", None, None, kinds=(int, list, tuple))
     if skiprows is not None:
         if not isinstance(skiprows, int):
             raise ctx.todo("a list of rows to skip: filter them after the scan")
         kwargs["skip_rows"] = skiprows
         options["skiprows"] = skiprows
-    nrows = call.const("nrows", None, None)
+    nrows = call.const("nrows", None, None, kinds=(int,))
     if nrows is not None:
         kwargs["n_rows"] = nrows
         # Polars infers column types from the whole file even when it reads n rows (and parses
@@ -119,10 +123,10 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         dtypes.setdefault(column, kind)
     frame = Frame(code, columns=columns, dtypes=tuple(dtypes.items()))
 
-    usecols = call.const("usecols", None, None)
+    usecols = call.const_values("usecols", kinds=(str, int))
     if usecols is not None:
-        frame = _select_in_file_order(frame, list(usecols), ctx)
-    parse_dates = call.const("parse_dates", None, None)
+        frame = _select_in_file_order(frame, usecols, ctx)
+    parse_dates = call.const("parse_dates", None, None, kinds=(bool, list, tuple))
     if parse_dates:
         if parse_dates is True or not all(isinstance(c, str) for c in parse_dates):
             raise ctx.todo("parse_dates must list column names")

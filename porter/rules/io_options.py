@@ -42,6 +42,24 @@ DTYPES: dict[str, tuple[str, str]] = {
 PYTHON_TYPES = {"str": "str", "int": "int", "float": "float", "bool": "bool"}
 
 
+def na_value_texts(values: list[Any]) -> list[str]:
+    """The texts pandas reads as missing for `na_values` (numbers in their usual spellings)."""
+    texts: list[str] = []
+    for value in values:
+        spellings = [str(value)]
+        if isinstance(value, (int, float)) and not isinstance(value, bool):
+            number = float(value)
+            spellings.append(repr(number))
+            if number.is_integer():
+                spellings.append(str(int(number)))
+        texts += [t for t in spellings if t not in texts]
+    return texts
+
+
+def is_number(value: Any) -> bool:
+    return isinstance(value, (int, float)) and not isinstance(value, bool)
+
+
 def scan_kwargs(options: dict[str, Any]) -> dict[str, Any]:
     """Real keyword arguments for pl.scan_csv from literal read_csv options (for --data)."""
     kwargs: dict[str, Any] = {"null_values": list(PANDAS_NA_TOKENS), "infer_schema_length": None}

@@ -28,7 +28,7 @@ def drop_duplicates(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(frame, Frame)
     ctx.reject_unknown(call, "subset", "keep", "ignore_index", positional=1)
     subset = call.const("subset", 0, None)
-    keep = call.const("keep", None, "first")
+    keep = call.const("keep", None, "first", kinds=(str, bool))
     if keep not in KEEP:
         raise Unsupported(f"keep={keep!r}")
     args = [emit.names_arg(column_names(subset, "subset"))] if subset else []

@@ -50,22 +50,50 @@ class PandasCall:
             raise Unsupported(f"`{name}` is required here")
         return default
 
-    def const(self, name: str, position: int | None = None, default: Any = MISSING) -> Any:
-        """The argument's literal value; a TODO when it is computed at run time."""
+    def const(self, name: str, position: int | None = None, default: Any = MISSING,
+              kinds: tuple[type, ...] | None = None) -> Any:
+        """The argument's literal value; a TODO when it is computed at run time, or when it is
+        not one of `kinds` (the forms the rule reads: pandas may accept others)."""
         if not self.has(name, position):
             if default is MISSING:
                 raise Unsupported(f"`{name}` is required here")
             return default
         value = self.arg(name, position)
-        if isinstance(value, Opaque) and value.is_const:
-            return value.const
-        raise NotLiteral(f"`{name}` is computed at run time; porter needs it written out")
+        if not (isinstance(value, Opaque) and value.is_const):
+            raise NotLiteral(f"`{name}` is computed at run time; porter needs it written out")
+        const = value.const
+        if kinds is not None and const is not default and (
+                not isinstance(const, kinds) or isinstance(const, bool) and bool not in kinds):
+            raise Unsupported(f"`{name}`={const!r}: porter reads {_kinds(kinds)} here")
+        return const
+
+    def const_values(self, name: str, position: int | None = None,
+                     kinds: tuple[type, ...] = (str, int, float)) -> list[Any] | None:
+        """An option pandas takes as one value or as a list of them (`na_values=-1`,
+        `na_values=["-", "n/a"]`), as a list; None when absent. A dict (the per-column form) or
+        a value of another kind is a TODO, never a crash."""
+        if not self.has(name, position):
+            return None
+        value = self.const(name, position)
+        if isinstance(value, dict):
+            raise Unsupported(f"`{name}` given per column (a dict) is not handled by porter yet")
+        values = list(value) if isinstance(value, (list, tuple, set, frozenset)) else [value]
+        if not all(isinstance(v, kinds) and not isinstance(v, bool) or bool in kinds and isinstance(v, bool)
+                   for v in values):
+            raise Unsupported(f"`{name}`={value!r}: porter reads {_kinds(kinds)} here")
+        return values
 
     def unknown_args(self, *known: str, positional: int = 0) -> list[str]:
         """Arguments a rule does not handle (keyword names, or `#n` for positions)."""
         extra = [k for k in self.kwargs if k not in known]
         extra += [f"#{i + 1}" for i in range(positional, len(self.args))]
         return extra
+
+
+def _kinds(kinds: tuple[type, ...]) -> str:
+    return " or ".join({str: "text", int: "whole numbers", float: "numbers", bool: "True/False",
+                        list: "a list", tuple: "a tuple", dict: "a dict"}.get(k, k.__name__)
+                       for k in kinds)
 
 
 @dataclass

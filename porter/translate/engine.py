@@ -54,8 +54,20 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
             return isinstance(call, cst.Call) and module.code_for_node(call.func) == "pl.from_pandas"
         return False
 
+    lines: list[str] = []
+
+    def glued(node: cst.CSTNode) -> bool:
+        pos = positions.get(node)
+        if pos is None or pos.start.column == 0:
+            return False
+        if not lines:
+            lines.extend(module.code.splitlines())
+        before = lines[pos.start.line - 1][pos.start.column - 1:pos.start.column]
+        return before.isalnum() or before == "_"
+
     services.code_for = module.code_for_node
     services.position = position
+    services.glued = glued
     services.inside_from_pandas = inside_from_pandas
     functions = discover_functions(module)
     services.functions = {f.name: f for f in functions}
@@ -242,6 +254,8 @@ class _Walker:
         text = value.code.text
         if text == self.services.code_for(expr):
             return expr
+        if self.services.glued(expr):  # `if(df.kg > 0).all():` keeps a valid header
+            text = f"({text})"
         return cst.parse_expression(text)
 
     def evaluate(self, expr: cst.BaseExpression, env: dict[str, Value]) -> Value:

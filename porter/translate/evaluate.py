@@ -69,6 +69,8 @@ class Services:
     # Series kept in a name whose frame's name later holds other rows: kept as a frame of its own
     stale_series: set[int] = field(default_factory=set)
     statement_lines: tuple[int, int] = (0, 0)  # lines of the statement being rewritten
+    # whether a node is glued to the word before it (`if(`, `not(`): its rewrite needs parentheses
+    glued: Callable[[cst.CSTNode], bool] = lambda node: False
 
 
 class Evaluator:
@@ -435,6 +437,10 @@ class Evaluator:
             result = fn(call, ctx)
         except Unsupported as exc:
             return self.todo(key, call, node, exc.reason, entry=entry)
+        except Exception as exc:  # noqa: BLE001 - a rule that cannot read this call keeps pandas
+            reason = (f"porter could not read this call ({type(exc).__name__}: {exc}); "
+                      f"internal error: please report")
+            return self.todo(key, call, node, reason, entry=entry)
         status = "handover" if entry.status == "handover" or ctx.handover else "converted"
         if ctx.todo_note is not None:
             status = "todo"

@@ -9,6 +9,7 @@ import libcst as cst
 
 from porter.emit import code as emit
 from porter.emit.code import ATOM
+from porter.emit.fstrings import as_format_call, fit_in_fstring, forbidden_in
 from porter.model import SiteDraft
 from porter.translate import handover
 from porter.translate.values import Opaque, PandasValue, is_pandas
@@ -35,8 +36,18 @@ class ChildRewriter(cst.CSTTransformer):
         self.sites: list[SiteDraft] = []
         self.replacements: dict[int, cst.BaseExpression] = {}
         self.pandas_inside = False
+        self.fstrings: list[cst.FormattedString] = []  # the f-strings being visited, innermost last
+        self.unfit: set[int] = set()  # f-strings whose rewritten code cannot stay between braces
+        self.concatenations = 0  # depth of implicit string concatenations being visited
+        self.format_calls: dict[int, tuple[cst.CSTNode, cst.Call]] = {}
 
     def on_visit(self, node: cst.CSTNode) -> bool:
+        if isinstance(node, cst.FormattedString):
+            self.fstrings.append(node)
+            return True
+        if isinstance(node, cst.ConcatenatedString):
+            self.concatenations += 1
+            return True
         if node is self.root:
             return True
         if isinstance(node, (cst.Lambda, cst.ListComp, cst.SetComp, cst.DictComp,
@@ -75,7 +86,10 @@ class ChildRewriter(cst.CSTTransformer):
                 replacement = cst.parse_expression(value.code.text)
             except cst.ParserSyntaxError:  # a chain laid out over several lines
                 replacement = cst.parse_expression(f"({value.code.text})")
-            if value.code.prec < precedence(node) and not replacement.lpar:
+            if (value.code.prec < precedence(node) or self.evaluator.services.glued(node)) \
+                    and not replacement.lpar:
+                # `if(df.kg > 0).all():` - a keyword glued to its expression needs the
+                # replacement to start with a parenthesis too
                 replacement = replacement.with_changes(lpar=[cst.LeftParen()], rpar=[cst.RightParen()])
             self.replacements[id(node)] = replacement
             self.changed = True
@@ -86,7 +100,23 @@ class ChildRewriter(cst.CSTTransformer):
             return updated.with_changes(value=self.replacements[id(original.value)])
         if isinstance(original, cst.FormattedStringExpression) \
                 and id(original.expression) in self.replacements:
-            return updated.with_changes(expression=self.replacements[id(original.expression)])
+            return updated.with_changes(expression=self._in_braces(original))
+        if isinstance(original, cst.FormattedString):
+            self.fstrings.pop()
+            if id(original) in self.unfit:
+                call = as_format_call(updated, self.evaluator.source)  # type: ignore[arg-type]
+                if call is not None and self.concatenations:
+                    # libcst only concatenates strings: the outermost concatenation is rebuilt
+                    self.format_calls[id(updated)] = (updated, call)
+                elif call is not None:
+                    return call.with_changes(lpar=original.lpar, rpar=original.rpar)
+            return updated
+        if isinstance(original, cst.ConcatenatedString):
+            self.concatenations -= 1
+            if not self.concatenations and self.format_calls:
+                # an f-string became a `str.format` call: the implicit concatenation becomes `+`
+                return self._joined(updated).with_changes(  # type: ignore[arg-type]
+                    lpar=original.lpar or [cst.LeftParen()], rpar=original.rpar or [cst.RightParen()])
         if isinstance(original, (cst.ListComp, cst.SetComp, cst.DictComp, cst.GeneratorExp)) \
                 and id(original.for_in.iter) in self.replacements:
             for_in = updated.for_in.with_changes(iter=self.replacements[id(original.for_in.iter)])
@@ -97,6 +127,27 @@ class ChildRewriter(cst.CSTTransformer):
                 return replacement.with_changes(lpar=original.lpar, rpar=original.rpar)
             return replacement
         return updated
+
+
+    def _joined(self, node: cst.BaseExpression) -> cst.BaseExpression:
+        """`"a" f"..."` with its f-strings made `str.format` calls, joined by `+`."""
+        if isinstance(node, cst.ConcatenatedString):
+            return cst.BinaryOperation(left=self._joined(node.left), operator=cst.Add(),
+                                       right=self._joined(node.right))
+        known = self.format_calls.get(id(node))
+        return known[1] if known is not None and known[0] is node else node
+
+    def _in_braces(self, original: cst.FormattedStringExpression) -> cst.BaseExpression:
+        """The rewritten expression, written so that it parses between this f-string's braces
+        on Python 3.11 (see porter.emit.fstrings)."""
+        replacement = self.replacements[id(original.expression)]
+        fstring = self.fstrings[-1]
+        text = self.evaluator.source(replacement)
+        fitted = fit_in_fstring(text, forbidden_in(fstring))
+        if fitted is None:
+            self.unfit.add(id(fstring))
+            return replacement
+        return replacement if fitted == text else cst.parse_expression(fitted)
 
 
 def precedence(node: cst.CSTNode) -> int:
