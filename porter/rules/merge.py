@@ -89,7 +89,7 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
     if args.const("left_index", None, False) or args.const("right_index", None, False):
         raise ctx.todo("left_index/right_index join on row labels: make the labels a column "
                        "(with_row_index where the frame was made) and join on it")
-    how = args.const("how", None, "inner")
+    how = args.const("how", None, "inner", kinds=(str,))
     if how in ("left_anti", "right_anti"):
         raise ctx.todo(f"how={how!r} keeps the other side's columns as missing values and the "
                        "old row labels: use join(how='anti') and add the columns")
