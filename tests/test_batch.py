@@ -164,10 +164,12 @@ def test_too_large_and_crashing_files_fail_alone(src, tmp_path, monkeypatch, cap
 
     monkeypatch.setattr(batch, "convert_source", crash_on_clean)
     report = tmp_path / "r.json"
-    assert main(["scan", str(src), "-j", "1", "--max-size", "1KB", "--report", str(report), "-q"]) == 1
+    # an internal error is status 2, never 1 (which a CI job reads as "TODOs remain")
+    assert main(["scan", str(src), "-j", "1", "--max-size", "1KB", "--report", str(report), "-q"]) == 2
     entries = {Path(e["source"]).name: e for e in json.loads(report.read_text())["files"]}
     assert entries["big.py"]["status"] == "failed" and "too large" in entries["big.py"]["error"]
-    assert entries["clean.py"]["error"] == "crash inside porter: RuntimeError: boom"
+    assert entries["clean.py"]["error"] == "internal error: please report (RuntimeError: boom)"
+    assert "RuntimeError: boom" in entries["clean.py"]["traceback"]
     assert entries["main.py"]["status"] == "converted"
 
 

@@ -79,7 +79,7 @@ TODOS = [
     pytest.param("r = df.drop([0, 1])", "frame.drop", id="drop rows by label"),
     pytest.param("r = df.drop(index=[0, 1])", "frame.drop", id="drop index="),
     pytest.param('r = df.assign(**{"my col": 1})', "frame.assign", id="assign unpacked keywords"),
-    pytest.param('rows = [{"a": 1}, {"a": 0}]\nd2 = pd.DataFrame(rows)\nd2["b"] = d2["a"].astype(bool)',
+    pytest.param('rows = [{"a": 1}, {"a": 0}]\nrows.append({"a": 2})\nd2 = pd.DataFrame(rows)\nd2["b"] = d2["a"].astype(bool)',
                  "series.astype", id="astype bool of an unknown type"),
 ]
 

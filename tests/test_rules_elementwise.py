@@ -72,7 +72,7 @@ TODOS = [
     pytest.param('r = df["k"].map(lambda x: codes[x] if x in codes else "?")', "series.map",
                  id="membership test in a lambda"),
     pytest.param('r = df["v"].apply(lambda x, y: x + y, args=(1,))', "series.apply", id="extra arguments"),
-    pytest.param('rows = [{"a": 1}]\nd2 = pd.DataFrame(rows)\nr = d2["a"].map(lambda x: "y" if x else "n")',
+    pytest.param('rows = [{"a": 1}]\nrows.append({"a": 0})\nd2 = pd.DataFrame(rows)\nr = d2["a"].map(lambda x: "y" if x else "n")',
                  "series.map", id="truth value of an unknown type"),
 ]
 

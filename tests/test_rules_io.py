@@ -94,7 +94,7 @@ PORTS = [
                  'replace_strict({True: "True", False: "False"})',
                  id="booleans written as True and False"),
     pytest.param('df = pd.DataFrame({"a": [1.0, np.nan, None], "s": ["x", None, "ünï"]})',
-                 'pl.LazyFrame({"a": [1.0, None, None], "s": ["x", None, "ünï"]}, strict=False)',
+                 'pl.LazyFrame({"a": [1.0, None, None], "s": ["x", None, "ünï"]})',
                  id="NaN in a literal is written as None"),
 ]
 

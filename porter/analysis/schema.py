@@ -7,7 +7,7 @@ from typing import Any
 
 import polars as pl
 
-from porter.rules.io_options import scan_kwargs
+from porter.rules.io_options import NOT_DECOMPRESSED, compression_of, is_url, scan_kwargs
 
 
 def dtype_name(dtype: pl.DataType) -> str | None:
@@ -43,6 +43,8 @@ class SchemaReader:
         return self.cache[key]
 
     def _read(self, reader: str, path: str, options: dict[str, Any]) -> dict[str, str] | None:
+        if is_url(path) or compression_of(path) in NOT_DECOMPRESSED:
+            return None  # never read as text what Polars cannot read (zip bytes as a header)
         file = self.root / path
         if not file.is_file():
             return None

@@ -1,5 +1,5 @@
-"""Reading and writing: pd.read_csv / read_parquet → scans, to_csv / to_parquet → sinks,
-pd.DataFrame from literals → pl.LazyFrame."""
+"""Reading and writing: pd.read_csv / read_parquet → scans, to_csv / to_parquet → sinks.
+"""
 
 from __future__ import annotations
 
@@ -9,8 +9,9 @@ from typing import Any
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, DTYPES, NA_CONSTANT, PANDAS_NA_TOKENS,
-                                     is_number, na_value_texts)
+from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, DTYPES, NA_CONSTANT, NOT_DECOMPRESSED,
+                                     PANDAS_NA_TOKENS, compression_of, is_number, is_url,
+                                     na_value_texts)
 from porter.translate import handover
 from porter.translate.context import PandasCall, RuleContext, Unsupported, derive, select_columns
 from porter.translate.values import Frame, Module, Opaque, Scalar, Value
@@ -54,6 +55,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
              "na_values", "nrows", "skiprows", "encoding", *READ_CSV_IGNORED}
     ctx.reject_unknown(call, *known, positional=1)
     source = call.arg("filepath_or_buffer", 0)
+    check_source(source, ctx)
     options: dict[str, Any] = {}
     kwargs: dict[str, object] = {}
     sep = call.const("sep", None, None, kinds=(str,)) or call.const("delimiter", None, None, kinds=(str,))
@@ -139,6 +141,20 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower("column types are inferred from the data the same way in both, except "
                   "integer columns with missing values (float in pandas)", 0.95)
     return frame
+
+
+def check_source(source: Value, ctx: RuleContext) -> None:
+    """A compressed file Polars does not decompress is a TODO; a URL lowers the confidence."""
+    path = source.const if isinstance(source, Opaque) and isinstance(source.const, str) else None
+    if path is None:
+        return
+    if compression_of(path) in NOT_DECOMPRESSED:
+        raise ctx.todo(f"{compression_of(path)} compression: pandas decompresses it, Polars' "
+                       "scans do not (gzip and zstd they do); decompress the file first, or "
+                       "read it with pandas and hand it over with pl.from_pandas")
+    if is_url(path):
+        ctx.lower("read from a URL: Polars fetches it with its own client (proxies and "
+                  "authentication may differ from pandas')", 0.9)
 
 
 def _const_dtype_dict(call: PandasCall) -> bool:
@@ -292,44 +308,3 @@ def _as_frame(call: PandasCall) -> Frame:
     code = handover.series_frame(receiver)
     name = receiver.name if receiver.name is not None else "0"
     return Frame(code, columns=(*receiver.frame.index, name), index=receiver.frame.index)
-
-
-@rule("pd.DataFrame")
-def data_frame(call: PandasCall, ctx: RuleContext) -> Value:
-    """pd.DataFrame({...}) -> pl.LazyFrame({...}, strict=False).
-
-    Handles: NaN in the literal is written as None (a missing value); mixed int/float lists
-    (strict=False takes the common type, as pandas does).
-    """
-    ctx.reject_unknown(call, "data", "columns", positional=1)
-    data = call.arg("data", 0, None)
-    if data is None:
-        raise ctx.todo("an empty DataFrame has no schema to build lazily")
-    if isinstance(data, Opaque) and isinstance(data.const, dict):
-        columns = call.const("columns", None, None)
-        literal = data.const
-        if columns is not None:
-            literal = {c: literal[c] for c in columns if c in literal}
-        if not all(isinstance(v, list) for v in literal.values()):
-            raise ctx.todo("scalar values are broadcast by pandas; write lists")
-        dtypes = {k: kind for k, v in literal.items() if (kind := _literal_dtype(v))}
-        return Frame(emit.pl("LazyFrame", literal, strict=False), columns=tuple(literal),
-                     dtypes=tuple(dtypes.items()))
-    if isinstance(data, Opaque):
-        ctx.lower("the data is built at run time: Polars reads dicts of lists and lists of "
-                  "dicts, but may type mixed columns differently", 0.8)
-        return Frame(emit.pl("LazyFrame", data.code, strict=False, infer_schema_length=None))
-    raise ctx.todo("building a frame from another pandas object")
-
-
-def _literal_dtype(values: list[Any]) -> str | None:
-    kinds = {type(v) for v in values if v is not None and v == v}
-    if kinds == {bool}:
-        return "bool"
-    if kinds == {int}:
-        return "int"
-    if kinds <= {int, float} and kinds:
-        return "float"
-    if kinds == {str}:
-        return "str"
-    return None

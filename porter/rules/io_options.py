@@ -42,6 +42,25 @@ DTYPES: dict[str, tuple[str, str]] = {
 PYTHON_TYPES = {"str": "str", "int": "int", "float": "float", "bool": "bool"}
 
 
+# pandas infers a file's compression from its name. Polars' scans detect gzip and zstd by their
+# first bytes and read them alike; a zip or xz file fails, and a bz2 file is read as its bytes.
+DECOMPRESSED_BY_POLARS = (".gz", ".zst")
+NOT_DECOMPRESSED = (".zip", ".bz2", ".xz", ".tar", ".tgz", ".tbz2", ".txz")
+
+
+def compression_of(path: str) -> str | None:
+    """The compression pandas infers from the file name, as its extension; None for none."""
+    lowered = path.lower()
+    for extension in (*DECOMPRESSED_BY_POLARS, *NOT_DECOMPRESSED):
+        if lowered.endswith(extension):
+            return extension
+    return None
+
+
+def is_url(path: str) -> bool:
+    return "://" in path
+
+
 def na_value_texts(values: list[Any]) -> list[str]:
     """The texts pandas reads as missing for `na_values` (numbers in their usual spellings)."""
     texts: list[str] = []

@@ -107,6 +107,7 @@ class RuleContext:
     evaluate: Any = None  # (node, {name: value}) -> Value, for lambda bodies
     todo_note: str | None = None  # the rewrite is written, but the site still needs a person
     datetimes_possible: bool = True  # the script makes or reads datetimes somewhere
+    inside_from_pandas: bool = False  # the call is the argument of pl.from_pandas (porter's output)
 
     def needs_review(self, reason: str) -> None:
         """Keep the rewrite but report the site as a TODO (for example a hand-back from pandas)."""

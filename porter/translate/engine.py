@@ -11,16 +11,17 @@ import libcst as cst
 from libcst.metadata import MetadataWrapper, ParentNodeProvider, PositionProvider
 
 from porter.analysis.imports import ImportFacts, collect_imports
+from porter.analysis.mutations import mutated_names
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.model import SiteDraft
-from porter.translate import imports as import_edits
+from porter.translate import handover, imports as import_edits
 from porter.translate.functions import discover_functions, learn_functions
 from porter.translate.writes import batch_writes
 from porter.translate.context import PandasCall, grouping_code
 from porter.translate.evaluate import Evaluator, Services
 from porter.translate.values import (
-    Column, Frame, Grouped, Module, Opaque, PandasValue, Scalar, Value, fresh_token, is_pandas,
+    MISSING, Column, Frame, Grouped, Module, Opaque, PandasValue, Scalar, Value, fresh_token, is_pandas,
 )
 
 TODO_PREFIX = "# TODO(porter): "
@@ -68,6 +69,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     services.code_for = module.code_for_node
     services.position = position
     services.glued = glued
+    services.mutated = mutated_names(module)
     services.inside_from_pandas = inside_from_pandas
     functions = discover_functions(module)
     services.functions = {f.name: f for f in functions}
@@ -331,7 +333,13 @@ class _Walker:
             if inplace is not None:
                 return inplace
             value = evaluator.eval(stmt.value)
+            if isinstance(value, (Frame, Column)):
+                # a bare value: a notebook cell shows it, so it shows the table, never a plan
+                # or an expression (in a script it computes what pandas computed, unused)
+                value = Opaque(handover.for_display(value), sites=value.sites)
             return self.unchanged_or(stmt.value, value, indent, prefix="")
+        if isinstance(stmt, cst.Assert):
+            return self.assert_stmt(stmt, evaluator)
         if isinstance(stmt, (cst.Assign, cst.AnnAssign)):
             return self.assign(stmt, env, evaluator, indent)
         if isinstance(stmt, cst.AugAssign):
@@ -350,6 +358,26 @@ class _Walker:
                 value = evaluator.dispatch("frame.delitem", call, stmt)
                 return self.bind(target.value.value, value, env, indent)
         return None, []
+
+    def assert_stmt(self, stmt: cst.Assert, evaluator: Evaluator) -> tuple[str | None, list[SiteDraft]]:
+        """`assert test, msg`: both are Python values, so pandas values inside are computed."""
+        parts: list[str] = []
+        sites: list[SiteDraft] = []
+        changed = False
+        for node in (stmt.test, stmt.msg):
+            if node is None:
+                continue
+            value = evaluator.eval(node)
+            if isinstance(value, (Frame, Column, Grouped)):
+                value = evaluator.handed_to_unknown(value, node)
+            sites += value.sites
+            text = value.code.text if value.code.text.startswith("(") or "\n" not in value.code.text \
+                else f"({value.code.text})"
+            changed = changed or text != self.services.code_for(node)
+            parts.append(text)
+        if not changed:
+            return None, sites
+        return "assert " + ", ".join(parts), sites
 
     def unchanged_or(self, node: cst.BaseExpression, value: Value, indent: str, prefix: str) -> tuple[str | None, list[SiteDraft]]:
         if is_pandas(value) and not isinstance(value, (Frame, Column)):
@@ -465,7 +493,15 @@ class _Walker:
             return self.bind(name, result, env, indent)
         from porter.translate.handover import to_pandas
         env[name] = PandasValue(emit.atom(name))
-        original = self.services.code_for(self.current_small).strip()
+        statement = self.current_small
+        if isinstance(statement, (cst.Assign, cst.AugAssign)) and statement.value is not None:
+            # other frames the statement reads are handed over too (`other.pct`), never left
+            # as LazyFrames or expressions inside pandas code
+            value = Evaluator(env, self.services).generic(statement.value)
+            if value.code.text != self.services.code_for(statement.value):
+                text = value.code.text if "\n" not in value.code.text else f"({value.code.text})"
+                statement = statement.with_changes(value=cst.parse_expression(text))
+        original = self.services.code_for(statement).strip()
         # the whole statement stays pandas: what it uses is not converted after all
         sites = [replace(s, status="todo", confidence=0.0,
                          message="kept on pandas with the statement it is in")
@@ -543,7 +579,10 @@ class _Walker:
         elif isinstance(value, PandasValue):
             env[name] = PandasValue(emit.atom(name))
         elif isinstance(value, Opaque):
-            env[name] = Opaque(emit.atom(name), const=value.const, pytype=value.pytype)
+            const = value.const
+            if name in self.services.mutated and isinstance(const, (list, dict, set)):
+                const = MISSING  # changed in place somewhere: not a constant
+            env[name] = Opaque(emit.atom(name), const=const, pytype=value.pytype)
         elif isinstance(value, Module):
             env[name] = Module(emit.atom(name), qualname=value.qualname)
         else:

@@ -71,6 +71,7 @@ class Services:
     statement_lines: tuple[int, int] = (0, 0)  # lines of the statement being rewritten
     # whether a node is glued to the word before it (`if(`, `not(`): its rewrite needs parentheses
     glued: Callable[[cst.CSTNode], bool] = lambda node: False
+    mutated: frozenset[str] = frozenset()  # names the script changes in place (never constants)
 
 
 class Evaluator:
@@ -279,6 +280,10 @@ class Evaluator:
 
     def call_builtin(self, name: str, node: cst.Call) -> Value:
         args = self.call_args(node)
+        if args is not None and name in ("list", "tuple") and len(args[0]) == 1 and not args[1] \
+                and isinstance(args[0][0], Opaque) and args[0][0].is_const \
+                and isinstance(args[0][0].const, (str, list, tuple)):
+            return self.opaque(node, _CONST_BUILTINS[name](args[0][0].const))  # list("AB")
         if args is None or not any(is_pandas(v) for v in (*args[0], *args[1].values())):
             return self.generic(node)
         positional, keywords = args
@@ -432,7 +437,8 @@ class Evaluator:
             return self.todo(key, call, node, reason, entry=entry)
         ctx = RuleContext(key, entry, entry.confidence, schema_lookup=self.services.schema_lookup,
                           evaluate=self.evaluate_with,
-                          datetimes_possible=self.services.datetimes_possible)
+                          datetimes_possible=self.services.datetimes_possible,
+                          inside_from_pandas=self.services.inside_from_pandas(node))
         try:
             result = fn(call, ctx)
         except Unsupported as exc:
@@ -441,6 +447,8 @@ class Evaluator:
             reason = (f"porter could not read this call ({type(exc).__name__}: {exc}); "
                       f"internal error: please report")
             return self.todo(key, call, node, reason, entry=entry)
+        if ctx.inside_from_pandas and ctx.handover and isinstance(result, PandasValue):
+            return result  # porter's own hand-over, met again on a later pass: nothing new
         status = "handover" if entry.status == "handover" or ctx.handover else "converted"
         if ctx.todo_note is not None:
             status = "todo"
@@ -529,6 +537,7 @@ class _TupleKey(Value):
 _PANDAS_SETTINGS = {"pandas.set_option", "pandas.reset_option", "pandas.get_option",
                     "pandas.option_context", "pandas.describe_option"}
 _ELEMENT_BUILTINS = {"len", "str", "int", "float", "round", "abs"}
+_CONST_BUILTINS: dict[str, Any] = {"list": list, "tuple": tuple}
 _TYPE_NAMES: dict[str, type] = {"str": str, "int": int, "float": float, "bool": bool}
 _FRAME_PROPERTIES = {"columns", "shape", "dtypes", "empty", "index", "values", "T", "size",
                      "ndim", "axes", "at", "iat", "attrs", "flags", "style", "plot"}

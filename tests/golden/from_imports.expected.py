@@ -12,10 +12,7 @@ huts = pl.scan_csv(
     null_values=PANDAS_NA_VALUES,
     infer_schema_length=None,
 )
-beds = pl.LazyFrame(
-    {"hut": ["Alder", "Birch", "Cedar"], "beds": [12, 8, 20]},
-    strict=False,
-)
+beds = pl.LazyFrame({"hut": ["Alder", "Birch", "Cedar"], "beds": [12, 8, 20]})
 joined = (
     huts
     .rename(

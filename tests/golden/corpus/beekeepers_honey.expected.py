@@ -24,7 +24,6 @@ PANDAS_CSV_DATETIMES = (
 
 APIARIES = pl.LazyFrame(
     {"apiary": ["combe aux abeilles", "pré haut", "rucher du moulin"], "altitude_m": [640, 1120, 415]},
-    strict=False,
 )
 MAX_MOISTURE = 18.6
 

@@ -23,7 +23,6 @@ PANDAS_CSV_DATETIMES = (
 
 GRADE_PRICES = pl.LazyFrame(
     {"grade": ["A", "B", "C"], "price_per_kg": [1.35, 0.9, 0.4]},
-    strict=False,
 )
 
 weighings = (

@@ -4,6 +4,7 @@ A portion count of 0 means the pupil was booked but absent. The allergen
 column says 'none' or is blank when the family declared nothing.
 """
 import numpy as np
+import pandas as pd
 import polars as pl
 
 # Text that pandas' read_csv reads as a missing value.
@@ -77,7 +78,8 @@ for _, row in risky.collect().to_pandas().iterrows():
     pupils.append(row["pupil_id"])
     notes.append(f"{row['class_group']}: {row['menu']} plate, check {row['allergen']}")
 alerts = (
-    pl.LazyFrame({"served_on": dates, "pupil_id": pupils, "note": notes}, strict=False, infer_schema_length=None)
+    pl.from_pandas(pd.DataFrame({"served_on": dates, "pupil_id": pupils, "note": notes}))
+    .lazy()
     .collect()
     .lazy()
 )

@@ -1,0 +1,243 @@
+"""Frames and Series written as Python values: `pd.DataFrame(...)`, `pd.Series(...)`.
+
+pandas types every column of a literal from all of its values; Polars infers a type per column
+too, but not the same one: an integer column with a missing value is float64 in pandas and Int64
+in Polars, `[True, None]` and `["a", 1]` are object columns in pandas and have no Polars type,
+lists of rows are rows in pandas and columns in Polars. Each literal is therefore typed here as
+pandas types it, and written with the Polars types that keep pandas' values; a column pandas
+keeps as `object` is a TODO.
+"""
+
+from __future__ import annotations
+
+from dataclasses import replace
+import math
+from typing import Any
+
+import libcst as cst
+
+from porter.emit import code as emit
+from porter.emit.code import Code
+from porter.rules import rule
+from porter.translate.context import PandasCall, RuleContext
+from porter.translate import handover
+from porter.translate.values import Column, Frame, Opaque, PandasValue, Value
+
+POLARS = {"int": "pl.Int64", "float": "pl.Float64", "str": "pl.String", "bool": "pl.Boolean"}
+
+
+def _missing(value: Any) -> bool:
+    return value is None or isinstance(value, float) and math.isnan(value)
+
+
+def column_type(name: str, values: list[Any], ctx: RuleContext) -> tuple[str | None, str | None]:
+    """(porter's dtype, the Polars dtype to write when Polars would infer another) of a literal
+    column, as pandas types it; a TODO for an object column."""
+    present = [v for v in values if not _missing(v)]
+    kinds = {type(v) for v in present}
+    if not values:
+        return "float", "pl.Float64"  # pandas: an empty column is float64 (Polars: Null)
+    if not present:
+        if all(v is None for v in values):
+            raise ctx.todo(f"column {name!r} holds only None: an object column in pandas, "
+                           "a Null column in Polars")
+        return "float", "pl.Float64"
+    missing = len(present) < len(values)
+    if kinds == {bool}:
+        if missing:
+            raise ctx.todo(f"column {name!r} mixes True/False with missing values: an object "
+                           "column in pandas")
+        return "bool", None
+    if kinds == {int}:
+        # pandas stores an integer column with a missing value as float64
+        return ("float", "pl.Float64") if missing else ("int", None)
+    if kinds <= {int, float}:
+        return "float", "pl.Float64" if int in kinds else None
+    if kinds == {str}:
+        return "str", None
+    if kinds <= {list, tuple}:
+        items = [item for v in present for item in v]
+        inner, _ = column_type(name, items, ctx) if items else (None, None)
+        if inner is None:
+            raise ctx.todo(f"column {name!r} holds empty lists only: no element type to give")
+        ctx.lower(f"column {name!r} holds lists: an object column in pandas, List({inner}) in "
+                  "Polars (the same values; explode and len work alike)", 0.9)
+        return None, f"pl.List({POLARS[inner]})"
+    spelled = ", ".join(sorted(k.__name__ for k in kinds))
+    raise ctx.todo(f"column {name!r} mixes {spelled}: pandas keeps an object column, which "
+                   "has no Polars type (cast the values first)")
+
+
+def _text_labels(labels: list[Any], ctx: RuleContext) -> list[str]:
+    if not all(isinstance(label, str) for label in labels):
+        raise ctx.todo("column labels that are not text have no Polars form")
+    if len(set(labels)) != len(labels):
+        raise ctx.todo("a column label given twice")
+    return labels
+
+
+def _columns_from_rows(rows: list[Any], labels: list[str] | None,
+                       ctx: RuleContext) -> tuple[dict[str, list[Any]], bool]:
+    """Rows (lists or tuples) or scalars as columns; True when the rows were lists."""
+    if all(isinstance(r, (list, tuple)) for r in rows):
+        widths = {len(r) for r in rows}
+        if len(widths) > 1:
+            raise ctx.todo("rows of different lengths (pandas pads them with missing values)")
+        width = widths.pop() if widths else len(labels or [])
+        as_rows = True
+        table = [list(col) for col in zip(*rows)] if rows else [[] for _ in range(width)]
+    elif not any(isinstance(r, (list, tuple, dict)) for r in rows):
+        width, as_rows, table = 1, False, [list(rows)]
+    else:
+        raise ctx.todo("a list mixing rows and single values")
+    if labels is None:
+        ctx.lower("pandas names these columns 0, 1, …; Polars names them \"0\", \"1\", … (text)", 0.9)
+        labels = [str(i) for i in range(width)]
+    if len(labels) != width:
+        raise ctx.todo(f"{len(labels)} column labels for rows of {width} values")
+    return dict(zip(labels, table)), as_rows
+
+
+def _columns_from_records(records: list[dict[Any, Any]], ctx: RuleContext) -> dict[str, list[Any]]:
+    labels: list[Any] = []
+    for record in records:
+        labels += [k for k in record if k not in labels]
+    _text_labels(labels, ctx)
+    return {label: [record.get(label) for record in records] for label in labels}
+
+
+def literal_frame(call: PandasCall, ctx: RuleContext, data: Any) -> Frame:
+    labels = call.const("columns", 1, None, kinds=(list, tuple))
+    if labels is not None:
+        labels = _text_labels(list(labels), ctx)
+    as_rows = False
+    if isinstance(data, dict):
+        _text_labels(list(data), ctx)
+        lengths = {len(v) for v in data.values() if isinstance(v, (list, tuple))}
+        if len(lengths) > 1:
+            raise ctx.todo("columns of different lengths (pandas raises)")
+        if not lengths:
+            raise ctx.todo("only single values: pandas needs an index to broadcast them")
+        size = lengths.pop()
+        columns = {k: list(v) if isinstance(v, (list, tuple)) else [v] * size for k, v in data.items()}
+        if any(isinstance(v, (dict, set)) for v in data.values()):
+            raise ctx.todo("a column given as a dict or set")
+        if labels is not None:
+            absent = [c for c in labels if c not in columns]
+            if absent:
+                raise ctx.todo(f"columns {absent} are not in the data (pandas makes them all missing)")
+            columns = {c: columns[c] for c in labels}
+    elif isinstance(data, (list, tuple)) and data and all(isinstance(r, dict) for r in data):
+        columns = _columns_from_records(list(data), ctx)
+        if labels is not None:
+            absent = [c for c in labels if c not in columns]
+            if absent:
+                raise ctx.todo(f"columns {absent} are not in the records (pandas makes them all missing)")
+            columns = {c: columns[c] for c in labels}
+    elif isinstance(data, (list, tuple)):
+        columns, as_rows = _columns_from_rows(list(data), labels, ctx)
+    else:
+        raise ctx.todo("a frame from a single value")
+    dtypes: dict[str, str] = {}
+    overrides: dict[str, Code] = {}
+    for name, values in columns.items():
+        kind, polars = column_type(name, values, ctx)
+        if kind is not None:
+            dtypes[name] = kind
+        if polars is not None:
+            overrides[name] = emit.atom(polars)
+    options: dict[str, Any] = {}
+    if as_rows:
+        code_data: Any = [list(r) for r in data]
+        options["schema"] = list(columns)
+        options["orient"] = "row"
+    else:
+        code_data = columns
+    if overrides:
+        options["schema_overrides"] = overrides
+    if as_rows and len(data) > 100:
+        options["infer_schema_length"] = None
+    return Frame(emit.pl("LazyFrame", code_data, **options), columns=tuple(columns),
+                 dtypes=tuple(dtypes.items()))
+
+
+@rule("pd.DataFrame")
+def data_frame(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.DataFrame(...) -> pl.LazyFrame(...) typed as pandas types the values.
+
+    Handles: a dict of lists (single values broadcast), a list of dicts (columns in order of
+    first appearance, missing keys missing), lists of rows or tuples (orient="row", columns=
+    or pandas' labels 0..n-1), a list of values (one column); NaN written as a missing value;
+    an integer column with a missing value is float, as in pandas; list cells become a List
+    column. Data built at run time (numpy arrays, dicts filled in a loop) is built by pandas
+    and handed to Polars once.
+    Caveats: object columns (mixed text and numbers, True/False with None, None only), labels
+    that are not text, index= and dtype= are TODOs.
+    """
+    ctx.reject_unknown(call, "data", "columns", "copy", "index", "dtype", positional=4)
+    if call.has("index", 2) or call.has("dtype", 3):
+        raise ctx.todo("index= and dtype= are not handled by porter yet")
+    data = call.arg("data", 0, None)
+    if data is None:
+        raise ctx.todo("an empty DataFrame has no schema to build lazily")
+    if isinstance(data, Opaque) and data.is_const:
+        return literal_frame(call, ctx, data.const)
+    if isinstance(data, Opaque):
+        # the shape is only known at run time (a 2-D array is rows, a dict is columns):
+        # pandas builds the frame exactly as before, Polars takes it over once
+        ctx.lower("the data is only known at run time: pandas builds the frame, then it is "
+                  "handed to Polars (pl.from_pandas)", 0.9)
+        built = Code(cst.Module([]).code_for_node(call.node)) if call.node is not None else None
+        if built is None or "\n" in built.text:
+            raise ctx.todo("a frame from data built at run time")
+        if ctx.inside_from_pandas:  # porter's own hand-over, met again: it stays as written
+            ctx.handover = True
+            return PandasValue(built)
+        return Frame(emit.pl("from_pandas", built).method("lazy"))
+    raise ctx.todo("building a frame from another pandas object")
+
+
+@rule("pd.Series")
+def series(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.Series([...], name=...) -> a column of a one-column LazyFrame.
+
+    Handles: the values typed as pandas types them (see pd.DataFrame); the name (pandas' None
+    is written "0", the label pandas' to_frame gives it).
+    Caveats: index=, dtype= and values computed at run time are TODOs.
+    """
+    ctx.reject_unknown(call, "data", "name", "copy", "index", "dtype", positional=3)
+    if call.has("index", 1) or call.has("dtype", 2):
+        raise ctx.todo("index= and dtype= are not handled by porter yet")
+    data = call.arg("data", 0, None)
+    name = call.const("name", None, None, kinds=(str,))
+    if not (isinstance(data, Opaque) and data.is_const and isinstance(data.const, (list, tuple))):
+        raise ctx.todo("a Series from values computed at run time")
+    values = list(data.const)
+    if any(isinstance(v, (list, tuple, dict)) for v in values):
+        raise ctx.todo("a Series of lists or dicts")
+    label = name if name is not None else "0"
+    kind, polars = column_type(label, values, ctx)
+    options = {"schema_overrides": {label: emit.atom(polars)}} if polars else {}
+    frame = Frame(emit.pl("LazyFrame", {label: values}, **options), columns=(label,),
+                  dtypes=((label, kind),) if kind else ())
+    return Column(emit.col(label), frame=frame, name=name, dtype=kind, refs=frozenset({label}))
+
+
+
+@rule("series.to_frame")
+def to_frame(call: PandasCall, ctx: RuleContext) -> Value:
+    """Series.to_frame(name) -> the frame of the column (and of its index columns, if any).
+
+    Handles: pandas' name for an unnamed Series ("0", as text).
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "name", positional=1)
+    name = call.const("name", 0, None, kinds=(str,))
+    if name is not None:
+        column = replace(column, name=name)
+    label = column.name if column.name is not None else "0"
+    index = column.frame.index
+    return Frame(handover.series_frame(column), columns=(*index, label), index=index,
+                 dtypes=((label, column.dtype),) if column.dtype else (),
+                 labels_intact=column.frame.labels_intact)
