@@ -38,6 +38,10 @@ def render(table: MappingTable) -> str:
         "Confidence is the probability that the rewrite gives pandas' result on any valid input; a",
         "rule lowers it for a particular site when it cannot rule a difference out, and says why.",
         "",
+        "Measured on code porter did not write: the `>>>` examples of pandas' own docstrings,",
+        "converted and run both ways — counts per category (same, flagged, different) in",
+        "[docstrings.md](docstrings.md), refreshed on demand by `tests/external/pandas_docstrings.py`.",
+        "",
     ]
     for area in sorted({e.area for e in entries}):
         lines += [f"## {area}", "", "| pandas | status | Polars | confidence | handles / advice |",

@@ -137,3 +137,19 @@ def _is_expression(node: ast.AST) -> bool:
                 and node.value.id == "pl" and node.attr in ("col", "when", "lit"):
             return True
     return False
+
+
+def test_a_frame_handed_to_pandas_inside_a_loop_crosses_before_it():
+    # from pandas' own DataFrameGroupBy.rank docstring: the loop body stays on pandas, so the
+    # frame is handed over once before the loop (it was left a LazyFrame, with no TODO)
+    text = both("""
+        import pandas as pd
+        df = pd.DataFrame({"group": ["a", "a", "a", "b", "b"], "value": [2, 4, 2, 1, 5]})
+        for method in ["average", "min", "dense", "first"]:
+            df[f"{method}_rank"] = df.groupby("group")["value"].rank(method)
+        result = df
+    """, "result")
+    lines = text.splitlines()
+    loop = next(i for i, line in enumerate(lines) if line.startswith("for method"))
+    assert lines[loop - 1] == "df = df.collect().to_pandas()"
+    assert any(line.startswith("# TODO(porter): frame.setitem") for line in lines[:loop])

@@ -233,16 +233,32 @@ class _Walker:
         emit_code, self.emit_code = self.emit_code, False
         saved = len(self.sites)
         _, after = self.indented(stmt.body, loop_env, unit, indent)
+        first_todos = [site for site in self.sites[saved:] if site.status == "todo"]
         del self.sites[saved:]
         self.emit_code = emit_code
         widened = _merge(loop_env, after)
+        # A frame the body hands over to pandas is a pandas frame from the first iteration on:
+        # it is handed over once before the loop, never left as a LazyFrame inside it.
+        from porter.translate.handover import to_pandas
+        before: list[Any] = []
+        for name, value in loop_env.items():
+            if isinstance(value, Frame) and isinstance(after.get(name), PandasValue):
+                widened[name] = PandasValue(emit.atom(name))
+                line = f"{name} = {to_pandas(value).text}\n"
+                before.append(cst.parse_statement(line))
         body, after = self.indented(stmt.body, widened, unit, indent)
         self.loop_depth -= 1
         changes["body"] = body
         if stmt.orelse is not None:
             else_body, after = self.indented(stmt.orelse.body, after, unit, indent)
             changes["orelse"] = stmt.orelse.with_changes(body=else_body)
-        return [stmt.with_changes(**changes)], _merge(env, after)
+        if before and self.emit_code:
+            # the TODOs that keep the frame on pandas in the body are marked where it crosses
+            self.record(tuple(first_todos))
+            before[0] = before[0].with_changes(
+                leading_lines=[*stmt.leading_lines, *_todo_comments(first_todos, before[0])])
+            return [*before, stmt.with_changes(**changes, leading_lines=())], _merge(widened, after)
+        return [stmt.with_changes(**changes)], _merge(env if not before else widened, after)
 
     def header(self, expr: cst.BaseExpression, env: dict[str, Value], owner: cst.CSTNode,
                value: Value | None = None) -> cst.BaseExpression:
