@@ -118,10 +118,10 @@ def literal_frame(call: PandasCall, ctx: RuleContext, data: Any) -> Frame:
             raise ctx.todo("columns of different lengths (pandas raises)")
         if not lengths:
             raise ctx.todo("only single values: pandas needs an index to broadcast them")
-        size = lengths.pop()
-        columns = {k: list(v) if isinstance(v, (list, tuple)) else [v] * size for k, v in data.items()}
         if any(isinstance(v, (dict, set)) for v in data.values()):
             raise ctx.todo("a column given as a dict or set")
+        size = lengths.pop()
+        columns = {k: list(v) if isinstance(v, (list, tuple)) else [v] * size for k, v in data.items()}
         if labels is not None:
             absent = [c for c in labels if c not in columns]
             if absent:
@@ -186,7 +186,7 @@ def data_frame(call: PandasCall, ctx: RuleContext) -> Value:
         # the shape is only known at run time (a 2-D array is rows, a dict is columns):
         # pandas builds the frame exactly as before, Polars takes it over once
         ctx.lower("the data is only known at run time: pandas builds the frame, then it is "
-                  "handed to Polars (pl.from_pandas)", 0.9)
+                  "handed to Polars (pl.from_pandas); number column labels become text", 0.9)
         built = Code(cst.Module([]).code_for_node(call.node)) if call.node is not None else None
         if built is None or "\n" in built.text:
             raise ctx.todo("a frame from data built at run time")

@@ -62,8 +62,7 @@ class PandasCall:
         if not (isinstance(value, Opaque) and value.is_const):
             raise NotLiteral(f"`{name}` is computed at run time; porter needs it written out")
         const = value.const
-        if kinds is not None and const is not default and (
-                not isinstance(const, kinds) or isinstance(const, bool) and bool not in kinds):
+        if kinds is not None and const is not default and not _of_kind(const, kinds):
             raise Unsupported(f"`{name}`={const!r}: porter reads {_kinds(kinds)} here")
         return const
 
@@ -78,8 +77,7 @@ class PandasCall:
         if isinstance(value, dict):
             raise Unsupported(f"`{name}` given per column (a dict) is not handled by porter yet")
         values = list(value) if isinstance(value, (list, tuple, set, frozenset)) else [value]
-        if not all(isinstance(v, kinds) and not isinstance(v, bool) or bool in kinds and isinstance(v, bool)
-                   for v in values):
+        if not all(_of_kind(v, kinds) for v in values):
             raise Unsupported(f"`{name}`={value!r}: porter reads {_kinds(kinds)} here")
         return values
 
@@ -88,6 +86,11 @@ class PandasCall:
         extra = [k for k in self.kwargs if k not in known]
         extra += [f"#{i + 1}" for i in range(positional, len(self.args))]
         return extra
+
+
+def _of_kind(value: Any, kinds: tuple[type, ...]) -> bool:
+    """isinstance, except that True/False is not a number here (only `bool` admits it)."""
+    return isinstance(value, bool) if isinstance(value, bool) else isinstance(value, kinds)
 
 
 def _kinds(kinds: tuple[type, ...]) -> str:

@@ -239,12 +239,11 @@ class _Walker:
         widened = _merge(loop_env, after)
         # A frame the body hands over to pandas is a pandas frame from the first iteration on:
         # it is handed over once before the loop, never left as a LazyFrame inside it.
-        from porter.translate.handover import to_pandas
         before: list[Any] = []
         for name, value in loop_env.items():
             if isinstance(value, Frame) and isinstance(after.get(name), PandasValue):
                 widened[name] = PandasValue(emit.atom(name))
-                line = f"{name} = {to_pandas(value).text}\n"
+                line = f"{name} = {handover.to_pandas(value).text}\n"
                 before.append(cst.parse_statement(line))
         body, after = self.indented(stmt.body, widened, unit, indent)
         self.loop_depth -= 1
@@ -387,8 +386,7 @@ class _Walker:
             if isinstance(value, (Frame, Column, Grouped)):
                 value = evaluator.handed_to_unknown(value, node)
             sites += value.sites
-            text = value.code.text if value.code.text.startswith("(") or "\n" not in value.code.text \
-                else f"({value.code.text})"
+            text = value.code.text if "\n" not in value.code.text else f"({value.code.text})"
             changed = changed or text != self.services.code_for(node)
             parts.append(text)
         if not changed:
@@ -507,7 +505,6 @@ class _Walker:
         pandas, the frame is handed over first and the statement kept as written."""
         if not isinstance(result, PandasValue):
             return self.bind(name, result, env, indent)
-        from porter.translate.handover import to_pandas
         env[name] = PandasValue(emit.atom(name))
         statement = self.current_small
         if isinstance(statement, (cst.Assign, cst.AugAssign)) and statement.value is not None:
@@ -522,7 +519,7 @@ class _Walker:
         sites = [replace(s, status="todo", confidence=0.0,
                          message="kept on pandas with the statement it is in")
                  if s.status == "converted" else s for s in result.sites]
-        return f"{name} = {to_pandas(frame).text}\n{original}", sites
+        return f"{name} = {handover.to_pandas(frame).text}\n{original}", sites
 
     def set_attr(self, target: cst.Attribute, value_node: cst.BaseExpression, env: dict[str, Value],
                  evaluator: Evaluator, indent: str) -> tuple[str | None, list[SiteDraft]] | None:
@@ -547,7 +544,6 @@ class _Walker:
     def series_of_its_own(self, name: str, value: Column) -> tuple[Code, Column]:
         """`s = df.select(...)`: the Series keeps its values when `df` is filtered later; it is
         still an expression of `df` while `df` keeps the same rows and columns."""
-        from porter.translate.handover import series_frame
         column = value.name if value.name is not None else "0"
         plain = value.code.text == emit.col(column).text
         version = value.frame.version(column) if plain else fresh_token()
@@ -557,7 +553,7 @@ class _Walker:
         kept = Column(emit.col(column), frame=frame, name=value.name, dtype=value.dtype,
                       refs=frozenset({column}), versions=((column, version),),
                       binding=self.statement_key)
-        return series_frame(value), kept
+        return handover.series_frame(value), kept
 
     def bind(self, name: str, value: Value, env: dict[str, Value], indent: str) -> tuple[str | None, list[SiteDraft]]:
         """`name = value`: remember what the name now holds and write the assignment."""
@@ -580,8 +576,7 @@ class _Walker:
                     code = value.code.method("fill_null", False)
                     env[name] = replace(env[name], null_is_false=False)  # type: ignore[arg-type]
             else:
-                from porter.translate.handover import series_frame
-                code = series_frame(value)
+                code = handover.series_frame(value)
                 column = value.name if value.name is not None else "0"
                 frame = Frame(emit.atom(name), columns=(*value.frame.index, column),
                               index=value.frame.index, labels_intact=value.frame.labels_intact)
