@@ -100,7 +100,32 @@ def assert_same_value(expected: Any, actual: Any) -> None:
         name = actual.name if isinstance(actual, pl.Series) else getattr(expected, "name", None)
         assert_same_table(pd.Series(list(expected), name=name), actual)
         return
+    if _is_sequence(expected) or _is_sequence(actual):
+        exp, act = _as_list(expected), _as_list(actual)
+        assert exp is not None and act is not None, f"pandas {expected!r}, polars {actual!r}"
+        assert len(exp) == len(act), f"lengths differ: pandas {len(exp)}, polars {len(act)}"
+        for i, (e, a) in enumerate(zip(exp, act)):
+            try:
+                assert_same_value(e, a)
+            except AssertionError as exc:
+                raise AssertionError(f"item {i}: {exc}") from None
+        return
     assert same_cells(_cell(expected), _cell(actual)), f"pandas {expected!r}, polars {actual!r}"
+
+
+def _is_sequence(value: Any) -> bool:
+    """An array, an Index or a list: compared item by item (a numpy array's `==` is no truth)."""
+    import numpy as np
+    return isinstance(value, (np.ndarray, pd.Index, pd.api.extensions.ExtensionArray, list, tuple))
+
+
+def _as_list(value: Any) -> list[Any] | None:
+    import numpy as np
+    if isinstance(value, np.ndarray):
+        return value.tolist() if value.ndim != 1 or value.dtype != object else list(value)
+    if isinstance(value, (pd.Index, pd.api.extensions.ExtensionArray, list, tuple, pl.Series)):
+        return list(value)
+    return None
 
 
 def _log_keys(result: FileResult) -> None:

@@ -25,9 +25,6 @@ def test_docstring_examples_are_same_or_flagged(key):
     assert category in ("same", "flagged", "untouched", "skipped"), f"{category}: {detail}"
 
 
-@pytest.mark.xfail(strict=True, reason=(
-    "Series.isin with a Series of another type: pandas compares 1 with '1.1' and says False, "
-    "Polars' is_in refuses to compare Int64 values with text"))
 def test_isin_with_values_of_another_type():
     category, detail = harness.judge(EXAMPLES["Series.isin"])
     assert category != "different", detail

@@ -195,7 +195,7 @@ def isin(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(column, Column)
     values = call.arg("values", 0)
     if isinstance(values, Opaque) and isinstance(values.const, (list, tuple, set)):
-        items = list(values.const)
+        items = _comparable(list(values.const), column.dtype, ctx)
         has_missing = _matches_missing(items, column.dtype, ctx)
         kwargs = {"nulls_equal": True} if has_missing else {}
         code = column.code.method("is_in", [v for v in items], **kwargs)
@@ -217,6 +217,25 @@ def isin(call: PandasCall, ctx: RuleContext) -> Value:
         return derived_column(column, code, dtype="bool", others=[values] if values.frame.rows
                               == column.frame.rows else [])
     raise Unsupported("isin with a frame or a value computed by pandas")
+
+
+def _comparable(items: list[Any], dtype: str | None, ctx: RuleContext) -> list[Any]:
+    """The items pandas can match in a column of this type: a number never equals a text
+    (`pd.Series([1]).isin(["1"])` is False), and Polars refuses to compare them at all, so the
+    items of the other kind are dropped."""
+    def kind(v: Any) -> str | None:
+        if v is None or isinstance(v, float) and v != v:
+            return None
+        return "str" if isinstance(v, str) else "number" if isinstance(v, (int, float)) else "other"
+    kinds = {kind(v) for v in items} - {None}
+    if dtype in ("int", "float", "bool"):
+        return [v for v in items if kind(v) != "str"]
+    if dtype in ("str", "category"):
+        return [v for v in items if kind(v) != "number"]
+    if len(kinds) > 1:
+        ctx.lower("the list mixes texts and numbers and the column type is not known; pandas "
+                  "matches each against equal values only", 0.7)
+    return items
 
 
 def _matches_missing(items: list[Any], dtype: str | None, ctx: RuleContext) -> bool:
