@@ -78,7 +78,8 @@ def _text_labels(labels: list[Any], ctx: RuleContext) -> list[str]:
 
 def _columns_from_rows(rows: list[Any], labels: list[str] | None,
                        ctx: RuleContext) -> tuple[dict[str, list[Any]], bool]:
-    """Rows (lists or tuples) or scalars as columns; True when the rows were lists."""
+    """Rows (lists or tuples) or scalars as columns; True when the rows were lists. Without
+    labels, the columns are pandas' 0, 1, … written as text."""
     if all(isinstance(r, (list, tuple)) for r in rows):
         widths = {len(r) for r in rows}
         if len(widths) > 1:
@@ -111,6 +112,7 @@ def literal_frame(call: PandasCall, ctx: RuleContext, data: Any) -> Frame:
     if labels is not None:
         labels = _text_labels(list(labels), ctx)
     as_rows = False
+    number_labels: tuple[str, ...] = ()
     if isinstance(data, dict):
         _text_labels(list(data), ctx)
         lengths = {len(v) for v in data.values() if isinstance(v, (list, tuple))}
@@ -136,6 +138,8 @@ def literal_frame(call: PandasCall, ctx: RuleContext, data: Any) -> Frame:
             columns = {c: columns[c] for c in labels}
     elif isinstance(data, (list, tuple)):
         columns, as_rows = _columns_from_rows(list(data), labels, ctx)
+        if labels is None:
+            number_labels = tuple(columns)
     else:
         raise ctx.todo("a frame from a single value")
     dtypes: dict[str, str] = {}
@@ -158,7 +162,7 @@ def literal_frame(call: PandasCall, ctx: RuleContext, data: Any) -> Frame:
     if as_rows and len(data) > 100:
         options["infer_schema_length"] = None
     return Frame(emit.pl("LazyFrame", code_data, **options), columns=tuple(columns),
-                 dtypes=tuple(dtypes.items()))
+                 dtypes=tuple(dtypes.items()), number_labels=number_labels)
 
 
 @rule("pd.DataFrame")

@@ -341,6 +341,46 @@ class _Walker:
 
     def small(self, stmt: cst.BaseSmallStatement, env: dict[str, Value], indent: str) -> tuple[str | None, list[SiteDraft]]:
         """Rewrite one small statement; None when it stays as written."""
+        handed, handed_sites = self.hand_over_changed(stmt, env)
+        text, sites = self._small(stmt, env, indent)
+        if not handed:
+            return text, sites
+        text = text if text is not None else self.services.code_for(stmt).strip()
+        return "\n".join([*handed, text]), [*handed_sites, *sites]
+
+    def hand_over_changed(self, stmt: cst.BaseSmallStatement, env: dict[str, Value]) -> tuple[list[str], list[SiteDraft]]:
+        """Frames and Series the statement changes in place in a way no rule rewrites
+        (`df.insert(...)`, `df.at[i, "c"] = v`, `s.name = "x"`): each is handed to pandas in
+        its own name first, so the change lands on the object the script reads afterwards."""
+        changed: dict[str, str] = {}
+        for target in _changed_targets(stmt):
+            name, what = _root_and_path(target)
+            value = env.get(name) if name is not None else None
+            if isinstance(value, (Frame, Column)) and not _rewritten_change(target, value, stmt):
+                changed.setdefault(name, what)  # type: ignore[arg-type]
+        for name, what in _mutating_calls(stmt):
+            if isinstance(env.get(name), (Frame, Column)):
+                changed.setdefault(name, what)
+        lines: list[str] = []
+        sites: list[SiteDraft] = []
+        line, end_line = self.services.position(stmt)
+        for name, what in changed.items():
+            value = env[name]
+            kind = "frame" if isinstance(value, Frame) else "series"
+            code = handover.to_pandas(value)
+            if kind == "series" and not value.frame.index:
+                # a Series from Polars shares Arrow's read-only memory, and pandas writes into
+                # it in place ("assignment destination is read-only"): a copy of its own
+                code = code.method("copy")
+            lines.append(f"{name} = {code.text}")
+            env[name] = PandasValue(emit.atom(name))
+            sites.append(SiteDraft(f"{kind}.{what}", "handover", "todo", 0.0,
+                                   f"`{what}` changes the {'frame' if kind == 'frame' else 'Series'} "
+                                   f"in place, which porter does not rewrite: `{name}` is handed "
+                                   "to pandas first", line, end_line))
+        return lines, sites
+
+    def _small(self, stmt: cst.BaseSmallStatement, env: dict[str, Value], indent: str) -> tuple[str | None, list[SiteDraft]]:
         evaluator = Evaluator(env, self.services)
         self.current_small = stmt
         if isinstance(stmt, cst.Expr):
@@ -600,6 +640,84 @@ class _Walker:
             code = Evaluator(env, self.services).handed_to_unknown(value, cst.Name(name)).code
             env[name] = PandasValue(emit.atom(name))
         return emit.layout_chain(code, indent, f"{name} = "), list(value.sites)
+
+
+# pandas methods that change their frame or Series in place (and have no rule that rewrites the
+# change); list methods of the same names are not affected: only tracked frames are handed over
+IN_PLACE_METHODS = frozenset({"insert", "pop", "update", "isetitem", "popitem"})
+
+
+def _changed_targets(stmt: cst.BaseSmallStatement) -> list[cst.BaseExpression]:
+    """Subscripts and attributes the statement assigns to or deletes."""
+    if isinstance(stmt, cst.Assign):
+        targets = [t.target for t in stmt.targets]
+    elif isinstance(stmt, (cst.AugAssign, cst.AnnAssign)):
+        targets = [stmt.target]
+    elif isinstance(stmt, cst.Del):
+        targets = list(stmt.target.elements) if isinstance(stmt.target, cst.Tuple) else [stmt.target]
+        targets = [t.value if isinstance(t, cst.Element) else t for t in targets]
+    else:
+        return []
+    found: list[cst.BaseExpression] = []
+    for target in targets:
+        if isinstance(target, (cst.Tuple, cst.List)):
+            found += [e.value for e in target.elements if isinstance(e.value, (cst.Subscript, cst.Attribute))]
+        elif isinstance(target, (cst.Subscript, cst.Attribute)):
+            found.append(target)
+    return found
+
+
+def _root_and_path(node: cst.BaseExpression) -> tuple[str | None, str]:
+    """`df.at[0, "a"]` -> ("df", "at"); `s.name` -> ("s", "name"); `df["a"]` -> ("df", "setitem")."""
+    path: list[str] = []
+    while isinstance(node, (cst.Subscript, cst.Attribute)):
+        if isinstance(node, cst.Attribute):
+            path.append(node.attr.value)
+        node = node.value
+    if not isinstance(node, cst.Name):
+        return None, ""
+    return node.value, ".".join(reversed(path)) or "setitem"
+
+
+def _rewritten_change(target: cst.BaseExpression, value: Value, stmt: cst.BaseSmallStatement) -> bool:
+    """Whether a rule takes the change: `df[key] = ...`, `df.loc[...] = ...`, `df.attr = ...`
+    and `del df[key]` on a frame (the rule itself keeps pandas, handing the frame over, when
+    it cannot port the change)."""
+    if not isinstance(value, Frame):
+        return False
+    owner = target.value  # type: ignore[attr-defined]
+    if isinstance(target, cst.Subscript):
+        if isinstance(owner, cst.Name):
+            return True
+        return isinstance(owner, cst.Attribute) and owner.attr.value in ("loc", "iloc") \
+            and isinstance(owner.value, cst.Name) and not isinstance(stmt, cst.Del)
+    return isinstance(owner, cst.Name) and isinstance(stmt, cst.Assign)
+
+
+def _mutating_calls(stmt: cst.CSTNode) -> list[tuple[str, str]]:
+    """(name, method) for each `name.method(...)` or `name.attrs.method(...)` in the statement
+    whose method changes a pandas object in place."""
+    found: list[tuple[str, str]] = []
+
+    class Calls(cst.CSTVisitor):
+        def visit_Call(self, node: cst.Call) -> None:
+            func = node.func
+            if not (isinstance(func, cst.Attribute) and func.attr.value in IN_PLACE_METHODS):
+                return
+            base = func.value
+            if isinstance(base, cst.Attribute) and base.attr.value in ("attrs", "flags"):
+                base = base.value
+            if isinstance(base, cst.Name):
+                found.append((base.value, func.attr.value))
+
+        def visit_Lambda(self, node: cst.Lambda) -> bool:
+            return False  # runs later, if at all
+
+        def visit_FunctionDef(self, node: cst.FunctionDef) -> bool:
+            return False
+
+    stmt.visit(Calls())
+    return found
 
 
 def _marked_key(comment: str) -> str | None:

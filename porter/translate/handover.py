@@ -28,7 +28,7 @@ def series_frame(column: Column) -> Code:
     """A column as a frame of its index columns (if any) and its values."""
     name = column.name if column.name is not None else "0"
     expr = column.code.method("fill_null", False) if column.null_is_false else column.code
-    if column.name is None or not (column.code.text == emit.col(name).text):
+    if column.code.text != emit.col(name).text:
         expr = expr.method("alias", name)
     keys = [emit.col(k) for k in column.frame.index if k != name]
     if expr.text == emit.col(name).text and column.frame.columns == (*column.frame.index, name):
@@ -52,13 +52,21 @@ def to_pandas(value: Value) -> Code:
         code = value.code.method("collect").method("to_pandas")
         if value.index:
             code = code.method("set_index", emit.names_arg(value.index))
+        labels = [c for c in value.number_labels if c not in value.index
+                  and (value.columns is None or c in value.columns)]
+        if labels:  # pandas' own labels 0, 1, … are integers
+            code = code.method("rename", columns=emit.atom("{" + ", ".join(
+                f"{c!r}: {int(c)}" for c in labels) + "}"))
         return code
     if isinstance(value, Column):
         if value.frame.index:
             name = value.name if value.name is not None else "0"
-            return (series_frame(value).method("collect").method("to_pandas")
+            code = (series_frame(value).method("collect").method("to_pandas")
                     .method("set_index", emit.names_arg(value.frame.index)).index(name))
-        return series_frame(value).method("collect").method("to_series").method("to_pandas")
+        else:
+            code = series_frame(value).method("collect").method("to_series").method("to_pandas")
+        # a Series pandas made without a name has none (Polars calls it "0")
+        return code.method("rename", None) if value.name is None else code
     if isinstance(value, Grouped):
         args: dict[str, object] = {}
         if not value.sort:
@@ -113,9 +121,17 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
         return Code(f"{to_pandas(call.receiver).wrapped(emit.ATOM)}.{node.attr.value}")
     if isinstance(node, cst.Subscript) and call.receiver is not None:
         receiver = call.receiver
-        inner = ", ".join(source(element.slice) for element in node.slice)
-        if len(node.slice) == 1 and call.args and not isinstance(call.args[0], Opaque):
-            inner = to_pandas(call.args[0]).text
+        keys: list[Value] = list(call.args)
+        if len(keys) == 1 and len(node.slice) > 1 and hasattr(keys[0], "items"):
+            keys = list(keys[0].items)  # type: ignore[attr-defined]  # df[a, b]: one tuple key
+        parts = []
+        for i, element in enumerate(node.slice):
+            key = keys[i] if len(keys) == len(node.slice) else None
+            # a key computed from a frame (`df.loc[df.index < 1, "a"]`) is handed over too
+            parts.append(to_pandas(key).text if isinstance(element.slice, cst.Index)
+                         and key is not None and not isinstance(key, Opaque)
+                         else source(element.slice))
+        inner = ", ".join(parts)
         base = to_pandas(receiver).wrapped(emit.ATOM)
         if isinstance(node.value, cst.Attribute) and node.value.attr.value in ("loc", "iloc") \
                 and isinstance(receiver, Frame):

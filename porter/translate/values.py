@@ -57,6 +57,8 @@ class Frame(Value):
     labels_intact: bool = field(default=True, kw_only=True)
     binding: int | None = field(default=None, kw_only=True)  # the assignment that named it
     index_unnamed: bool = field(default=False, kw_only=True)  # pandas' index has no name
+    # columns pandas labels with the integers 0, 1, … (Polars names them "0", "1", …)
+    number_labels: tuple[str, ...] = field(default=(), kw_only=True)
 
     def dtype(self, column: str) -> str | None:
         return dict(self.dtypes).get(column)

@@ -70,15 +70,27 @@ class Example:
 
     @property
     def reference(self) -> str:
-        """The script pandas runs: each kept value is copied where it is shown, since later
-        examples may change the same object in place (the converted values are snapshots)."""
-        lines = []
-        for line in self.script.splitlines():
-            lines.append(line)
-            name = line.split(" = ", 1)[0]
-            if name in self.kept:
-                lines.append(f"{name} = {name}.copy() if hasattr({name}, 'copy') else {name}")
-        return "\n".join(lines) + "\n"
+        """The script pandas runs."""
+        return snapshots(self.script, self.kept)
+
+
+def snapshots(script: str, kept: tuple[str, ...]) -> str:
+    """The script with each kept value copied where it is shown: later examples may change the
+    same object in place, and the documentation shows the value as it was then."""
+    lines = script.splitlines()
+    after: dict[int, str] = {}
+    for node in ast.parse(script).body:
+        if isinstance(node, ast.Assign) and len(node.targets) == 1 \
+                and isinstance(node.targets[0], ast.Name) and node.targets[0].id in kept:
+            name = node.targets[0].id
+            after[node.end_lineno or node.lineno] = \
+                f"{name} = {name}.copy() if hasattr({name}, 'copy') else {name}"
+    out: list[str] = []
+    for number, line in enumerate(lines, start=1):
+        out.append(line)
+        if number in after:
+            out.append(after[number])
+    return "\n".join(out) + "\n"
 
 
 def examples() -> list[Example]:
@@ -150,7 +162,7 @@ def judge(example: Example) -> tuple[str, str]:
         return "untouched", ""
     category = "flagged" if result.todos else "same"
     try:
-        actual = _run(result.converted_text)
+        actual = _run(snapshots(result.converted_text, example.kept))
     except BaseException as exc:  # noqa: BLE001
         return ("flagged-different" if result.todos else "different"), \
             f"converted fails: {type(exc).__name__}: {str(exc)[:200]}"
