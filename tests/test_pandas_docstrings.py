@@ -30,9 +30,6 @@ def test_isin_with_values_of_another_type():
     assert category != "different", detail
 
 
-@pytest.mark.xfail(strict=True, reason=(
-    "frame.dtypes is rewritten to collect_schema(), whose value has no value_counts(): a value "
-    "read from the frame's properties must be handed over as pandas would give it"))
 def test_dtypes_value_counts():
     category, detail = harness.judge(EXAMPLES["Series.value_counts"])
     assert category in ("same", "flagged"), detail

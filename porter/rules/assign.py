@@ -308,5 +308,10 @@ def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, st
         raise Unsupported("astype(bool) depends on the column type (use --data)")
     if kind == "int":
         ctx.lower("pandas raises on missing values when casting to int; Polars keeps them missing", 0.95)
+    if kind == "category" and column.dtype not in ("str", "category"):
+        if column.dtype is not None:
+            raise Unsupported(f"a category of {column.dtype} values: Polars' Categorical holds "
+                              "text only (keep the column as it is, or cast it to text first)")
+        ctx.lower("Polars' Categorical holds text only: the column is taken to be text", 0.9)
     return code.method("cast", emit.atom(polars)), kind
 

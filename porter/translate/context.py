@@ -111,6 +111,7 @@ class RuleContext:
     todo_note: str | None = None  # the rewrite is written, but the site still needs a person
     datetimes_possible: bool = True  # the script makes or reads datetimes somewhere
     inside_from_pandas: bool = False  # the call is the argument of pl.from_pandas (porter's output)
+    shown: bool = False  # the value is only printed or displayed (print(...), a bare cell value)
 
     def needs_review(self, reason: str) -> None:
         """Keep the rewrite but report the site as a TODO (for example a hand-back from pandas)."""

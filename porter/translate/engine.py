@@ -55,6 +55,15 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
             return isinstance(call, cst.Call) and module.code_for_node(call.func) == "pl.from_pandas"
         return False
 
+    def shown(node: cst.CSTNode) -> bool:
+        parent = parents.get(node)
+        if isinstance(parent, (cst.Expr, cst.FormattedStringExpression)):
+            return True
+        if isinstance(parent, cst.Arg) and parent.keyword is None and not parent.star:
+            call = parents.get(parent)
+            return isinstance(call, cst.Call) and module.code_for_node(call.func) in ("print", "display")
+        return False
+
     lines: list[str] = []
 
     def glued(node: cst.CSTNode) -> bool:
@@ -71,6 +80,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     services.glued = glued
     services.mutated = mutated_names(module)
     services.inside_from_pandas = inside_from_pandas
+    services.shown = shown
     functions = discover_functions(module)
     services.functions = {f.name: f for f in functions}
 

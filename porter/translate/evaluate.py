@@ -62,6 +62,7 @@ class Services:
     functions: dict[str, LocalFunction] = field(default_factory=dict)
     call_sites: dict[str, list[tuple[Value, ...]]] = field(default_factory=dict)
     inside_from_pandas: Callable[[cst.CSTNode], bool] = lambda node: False
+    shown: Callable[[cst.CSTNode], bool] = lambda node: False  # only printed or displayed
     schema_lookup: Callable[[str, str, dict[str, Any]], dict[str, str] | None] | None = None
     datetimes_possible: bool = True
     # statements that compute each named frame's data, by the assignment that named it
@@ -438,7 +439,8 @@ class Evaluator:
         ctx = RuleContext(key, entry, entry.confidence, schema_lookup=self.services.schema_lookup,
                           evaluate=self.evaluate_with,
                           datetimes_possible=self.services.datetimes_possible,
-                          inside_from_pandas=self.services.inside_from_pandas(node))
+                          inside_from_pandas=self.services.inside_from_pandas(node),
+                          shown=self.services.shown(node))
         try:
             result = fn(call, ctx)
         except Unsupported as exc:

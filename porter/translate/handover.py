@@ -55,8 +55,7 @@ def to_pandas(value: Value) -> Code:
         labels = [c for c in value.number_labels if c not in value.index
                   and (value.columns is None or c in value.columns)]
         if labels:  # pandas' own labels 0, 1, … are integers
-            code = code.method("rename", columns=emit.atom("{" + ", ".join(
-                f"{c!r}: {int(c)}" for c in labels) + "}"))
+            code = code.method("rename", columns={c: int(c) for c in labels})
         return code
     if isinstance(value, Column):
         if value.frame.index:
