@@ -44,10 +44,12 @@ def rows(value: Any) -> tuple[list[str], list[tuple[Any, ...]]]:
         value = value.to_frame(name=value.name if value.name is not None else "0")
     if isinstance(value, pd.DataFrame):
         if isinstance(value.index, pd.MultiIndex) or value.index.name is not None:
-            value = value.reset_index()
+            value = value.reset_index(allow_duplicates=True)
         else:
             value = value.reset_index(drop=True)
-        columns = [str(c) for c in value.columns]
+        # porter flattens MultiIndex columns to column_function (documented, confidence 0.9)
+        columns = ["_".join(str(p) for p in c if p != "") if isinstance(c, tuple) else str(c)
+                   for c in value.columns]
         data = [tuple(_cell(v) for v in row) for row in value.itertuples(index=False, name=None)]
         return columns, data
     if isinstance(value, pl.DataFrame):
@@ -99,6 +101,14 @@ def assert_same_value(expected: Any, actual: Any) -> None:
         # an array from pandas (unique(), values) has no name: compare the values only
         name = actual.name if isinstance(actual, pl.Series) else getattr(expected, "name", None)
         assert_same_table(pd.Series(list(expected), name=name), actual)
+        return
+    if isinstance(expected, dict) and isinstance(actual, dict):
+        assert list(expected) == list(actual), f"keys differ: pandas {list(expected)}, polars {list(actual)}"
+        for key in expected:
+            try:
+                assert_same_value(expected[key], actual[key])
+            except AssertionError as exc:
+                raise AssertionError(f"key {key!r}: {exc}") from None
         return
     if _is_sequence(expected) or _is_sequence(actual):
         exp, act = _as_list(expected), _as_list(actual)

@@ -213,3 +213,30 @@ def test_a_key_computed_from_a_frame_is_handed_over_with_it():
         df = pd.DataFrame({"a": [1, 3], "b": [2, 4]})
         result = df.loc[df.index < 1, ["a"]]
     """, "result")
+
+
+def test_a_function_defined_twice_keeps_its_call_as_written():
+    # from pandas' DataFrame.pipe docstring: the second definition has other parameters; the
+    # first call's argument was replaced by a keyword's value (`f(0.05, rate=0.05, ...)`)
+    text = both("""
+        import pandas as pd
+        df = pd.DataFrame({"pay": [800.0, 950.0]})
+        def insurance(df, rate, extra):
+            return df * (1 - rate - extra)
+        result = insurance(df, rate=0.05, extra=0.02)
+        def insurance(rate, df, extra):
+            return df * (1 - rate - extra)
+        again = insurance(0.05, df=df, extra=0.02)
+    """, "result", "again")
+    assert "insurance(df, rate=0.05, extra=0.02)" in text.replace(".collect().to_pandas()", "")
+
+
+def test_a_function_passed_to_pipe_takes_what_pipe_gives_it():
+    both("""
+        import pandas as pd
+        df = pd.DataFrame({"pay": [800.0, 950.0]})
+        def tax(df):
+            return df * 0.9
+        direct = tax(df)
+        result = df.pipe(tax)
+    """, "direct", "result")

@@ -46,8 +46,15 @@ def frame_values(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.reject_unknown(call)
     if frame.index:
         raise ctx.todo("the frame's index columns would be included (they are not in pandas' values)")
+    kinds = {t for _, t in frame.dtypes}
+    if kinds & {"datetime", "date"} and len(kinds) > 1:
+        raise ctx.todo("dates beside other columns: pandas gives an object array of Timestamps, "
+                       "Polars casts the dates to numbers")
     if not (frame.dtypes and all(t in ("int", "float", "bool") for _, t in frame.dtypes)
             and frame.columns is not None and len(frame.dtypes) == len(frame.columns)):
         ctx.lower("text columns give None for missing values where pandas gives nan", 0.95)
+        if ctx.datetimes_possible and not kinds & {"datetime", "date"}:
+            ctx.lower("a date column beside other columns would become numbers (pandas keeps "
+                      "Timestamps in an object array); the column types are not all known", 0.8)
     return Scalar(frame.code.method("collect").method("to_numpy"), pytype="array")
 

@@ -310,15 +310,18 @@ class Evaluator:
         positional, keywords = args
         self.services.call_sites.setdefault(function.name, []).append(
             tuple(positional) + tuple(keywords.values()))
-        bound = dict(zip(function.params, positional)) | keywords
         parts: list[str] = []
         sites: list[SiteDraft] = []
-        for i, arg in enumerate(node.args):
-            param = arg.keyword.value if arg.keyword else (
-                function.params[i] if i < len(function.params) else "")
-            value = bound.get(param, positional[i] if i < len(positional) else None)
-            if value is None:
-                return self.generic(node)
+        position = 0
+        for arg in node.args:
+            # each argument is written from its own value (a keyword never stands in for a
+            # positional argument, even when the call binds both to one name: pandas raises)
+            if arg.keyword is not None:
+                param, value = arg.keyword.value, keywords[arg.keyword.value]
+            else:
+                param = function.params[position] if position < len(function.params) else ""
+                value = positional[position]
+                position += 1
             sites += value.sites
             if isinstance(value, Frame) and param in function.frame_params:
                 text = value.code.text
@@ -551,7 +554,9 @@ _DT_PROPERTIES = {"year", "month", "day", "hour", "minute", "second", "microseco
                   "nanosecond", "weekday", "dayofweek", "day_of_week", "dayofyear",
                   "day_of_year", "quarter", "date", "time", "is_leap_year", "days_in_month",
                   "daysinmonth", "is_month_start", "is_month_end", "days", "seconds",
-                  "tz", "freq", "unit", "week", "weekofyear"}
+                  "tz", "freq", "unit", "week", "weekofyear", "timetz", "is_quarter_start",
+                  "is_quarter_end", "is_year_start", "is_year_end", "components",
+                  "microseconds", "nanoseconds"}
 _BUILTIN_RULES = {"len": "builtin.len", "round": "{kind}.round", "abs": "{kind}.abs",
                   "list": "builtin.list", "sum": "builtin.sum", "max": "builtin.max",
                   "min": "builtin.min"}

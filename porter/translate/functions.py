@@ -3,6 +3,7 @@ the calls (a small fixpoint over the module, run by the engine)."""
 
 from __future__ import annotations
 
+import ast
 from dataclasses import replace
 from typing import Any
 
@@ -14,15 +15,35 @@ from porter.translate.values import Column, Frame, Opaque, Scalar, Value, fresh_
 
 
 def discover_functions(module: cst.Module) -> list[LocalFunction]:
+    """The module's own plain functions. A name defined twice is left out: which definition a
+    call runs depends on where it is, and one learnt signature would fit only one of them."""
+    defined: dict[str, int] = {}
+    for stmt in module.body:
+        if isinstance(stmt, (cst.FunctionDef, cst.ClassDef)):
+            defined[stmt.name.value] = defined.get(stmt.name.value, 0) + 1
+    passed = _passed_as_values(module, set(defined))
     found = []
     for stmt in module.body:
-        if isinstance(stmt, cst.FunctionDef) and not stmt.decorators:
+        if isinstance(stmt, cst.FunctionDef) and not stmt.decorators \
+                and defined[stmt.name.value] == 1 and stmt.name.value not in passed:
             params = stmt.params
             if params.star_arg not in (None, cst.MaybeSentinel.DEFAULT) or params.star_kwarg:
                 continue
             names = tuple(p.name.value for p in (*params.posonly_params, *params.params))
             found.append(LocalFunction(stmt.name.value, names, frozenset(), None))
     return found
+
+
+def _passed_as_values(module: cst.Module, names: set[str]) -> set[str]:
+    """Functions named other than in a call of their own (`df.pipe(f)`, `s.apply(f)`): other
+    code calls them, with arguments porter does not see, so nothing is learnt about them."""
+    try:
+        tree = ast.parse(module.code)
+    except SyntaxError:  # syntax newer than this Python: learn nothing rather than guess
+        return names
+    callees = {id(node.func) for node in ast.walk(tree) if isinstance(node, ast.Call)}
+    return {node.id for node in ast.walk(tree)
+            if isinstance(node, ast.Name) and node.id in names and id(node) not in callees}
 
 
 def learn_functions(services: Services, returns: dict[str, list[Value]]) -> dict[str, LocalFunction]:

@@ -13,7 +13,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.translate.context import PandasCall
 from porter.translate.values import (
-    Accessor, Column, Frame, Grouped, Indexer, Items, Opaque, Value, is_pandas,
+    Accessor, BoundMethod, Column, Frame, Grouped, Indexer, Items, Opaque, Value, is_pandas,
 )
 
 
@@ -84,6 +84,8 @@ def to_pandas(value: Value) -> Code:
         return to_pandas(value.frame).attr(value.kind)
     if isinstance(value, Items):
         return _items(value, to_pandas)
+    if isinstance(value, BoundMethod) and is_pandas(value.receiver):
+        return to_pandas(value.receiver).attr(value.name)  # a method or property not called here
     return value.code
 
 
@@ -101,14 +103,23 @@ def for_display(value: Value) -> Code:
 def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
                     node: cst.CSTNode) -> Code:
     """The original pandas call, run on pandas versions of its inputs."""
+    def rewritten(value: Value | None) -> bool:
+        """A value porter changed (a frame to hand over, `len(df)` computed by Polars, a
+        TODO'd call's own hand-over): its code must replace the source."""
+        if value is None:
+            return False
+        if isinstance(value, Opaque):
+            return value.node is not None and value.code.text != source(value.node)
+        return True
+
     inputs = [call.receiver, *call.args, *call.kwargs.values()]
-    if not any(v is not None and is_pandas(v) for v in inputs):
+    if not any(rewritten(v) for v in inputs):
         return Code(source(node))  # nothing to hand over: the call stays exactly as written
     if isinstance(node, cst.Call):
         args = []
         for arg in node.args:
             value = _argument_value(call, arg)
-            text = to_pandas(value).text if value is not None else source(arg.value)
+            text = to_pandas(value).text if rewritten(value) else source(arg.value)  # type: ignore[arg-type]
             star = arg.star or ""
             args.append(f"{arg.keyword.value}={text}" if arg.keyword else f"{star}{text}")
         func = node.func
@@ -151,6 +162,4 @@ def _argument_value(call: PandasCall, arg: cst.Arg) -> Value | None:
         index = [a for a in (call.node.args if isinstance(call.node, cst.Call) else ())
                  if a.keyword is None].index(arg)
         value = call.args[index] if index < len(call.args) else None
-    if value is None or isinstance(value, Opaque):
-        return None
     return value
