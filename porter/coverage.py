@@ -22,6 +22,16 @@ def _cell(text: str) -> str:
     return text.replace("|", "\\|").replace("\n", " ").strip()
 
 
+def _docstring_counts() -> list[str]:
+    """The category table of the last docstring run (docs/docstrings.md), if there is one."""
+    page = Path(__file__).resolve().parent.parent / "docs" / "docstrings.md"
+    if not page.exists():
+        return []
+    rows = [line for line in page.read_text(encoding="utf-8").splitlines()
+            if line.startswith("| ") and not line.startswith("| category")]
+    return ["| category | scripts |", "|---|---|", *rows, ""] if rows else []
+
+
 def render(table: MappingTable) -> str:
     rules = registry()
     entries = sorted(table, key=lambda e: (e.area, e.key))
@@ -42,6 +52,7 @@ def render(table: MappingTable) -> str:
         "converted and run both ways — counts per category (same, flagged, different) in",
         "[docstrings.md](docstrings.md), refreshed on demand by `tests/external/pandas_docstrings.py`.",
         "",
+        *_docstring_counts(),
     ]
     for area in sorted({e.area for e in entries}):
         lines += [f"## {area}", "", "| pandas | status | Polars | confidence | handles / advice |",

@@ -60,6 +60,9 @@ def rows(value: Any) -> tuple[list[str], list[tuple[Any, ...]]]:
 def _cell(value: Any) -> Any:
     if value is None or value is pd.NA or value is pd.NaT:
         return None
+    if isinstance(value, (list, tuple, pd.Index, pd.api.extensions.ExtensionArray)) \
+            or type(value).__name__ == "ndarray":
+        return tuple(_cell(v) for v in list(value))  # a list cell (pandas: an array)
     if isinstance(value, float) and math.isnan(value):
         return None
     if hasattr(value, "item") and not isinstance(value, (str, bytes)):
