@@ -176,6 +176,9 @@ def _verify_options(parser: argparse.ArgumentParser, outputs: bool = True) -> No
                        help="relative tolerance for floats (default 1e-9)")
     group.add_argument("--ignore-order", action="store_true",
                        help="compare tables as multisets of rows")
+    group.add_argument("--timing-runs", type=_count, default=1, metavar="N",
+                       help="run each side N more times without capturing its frames and report "
+                            "the median time and peak memory and their spread (default 1)")
     if not outputs:
         return
     group.add_argument("--json", metavar="FILE", help="write the verdict as JSON")
@@ -200,6 +203,16 @@ def _positive(text: str) -> int:
         raise argparse.ArgumentTypeError(f"not a whole number: {text!r}") from None
     if value < 1:
         raise argparse.ArgumentTypeError("must be at least 1")
+    return value
+
+
+def _count(text: str) -> int:
+    try:
+        value = int(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"not a whole number: {text!r}") from None
+    if value < 0:
+        raise argparse.ArgumentTypeError("must be 0 or more")
     return value
 
 
@@ -378,7 +391,8 @@ def review_command(args: argparse.Namespace) -> int:
         options=Options(min_confidence=args.min_confidence, data_dir=args.data),
         low=args.low, verify=args.verify,
         verify_options=VerifyOptions(timeout=args.timeout, memory_mib=args.memory_limit,
-                                     rtol=args.rtol, ignore_order=args.ignore_order),
+                                     rtol=args.rtol, ignore_order=args.ignore_order,
+                                     timing_runs=args.timing_runs),
         jobs=args.jobs, excludes=tuple(args.exclude), max_size=args.max_size, title=args.title,
         progress=not args.quiet))
     _write(Path(args.output), done.html)
@@ -406,7 +420,8 @@ def _run_verify(args: argparse.Namespace, original: str, converted: str | None, 
     from porter.verify.api import VerifyOptions, verify
     from porter.verify.text import kept_folders, render
     options = VerifyOptions(timeout=args.timeout, memory_mib=args.memory_limit, rtol=args.rtol,
-                            ignore_order=args.ignore_order, keep=args.keep)
+                            ignore_order=args.ignore_order, keep=args.keep,
+                            timing_runs=args.timing_runs)
     result = verify(original, converted, args.data, options)
     print(render(result, original, label), file=stream)
     if args.keep:

@@ -6,7 +6,9 @@ both versions on the script's sample data, and show what porter did.
 Each converted script is written beside a JSON report and a side-by-side HTML review page
 (review.html) in the output folder; the terminal shows
 one line per script (sites, TODOs, verdict, time and peak memory of both versions) and the
-overall summary. Verifying runs the corpus scripts.
+overall summary. Verifying runs the corpus scripts. The time and peak memory are each script's
+own (from its first line to its end, not the verifier's capture of its frames afterwards), the
+median over the verifying run and `--timing-runs` more runs (default 1).
 """
 
 from __future__ import annotations
@@ -19,7 +21,7 @@ import sys
 from porter.api import convert_file
 from porter.reports import report_json, summary_text
 from porter.model import FileResult, Options
-from porter.verify.api import verify
+from porter.verify.api import VerifyOptions, verify
 from porter.review import render_review
 from porter.verify.model import SideRun, VerifyResult
 
@@ -40,6 +42,9 @@ def main(argv: list[str] | None = None) -> int:
     parser.add_argument("--corpus", type=Path, default=ROOT / "corpus")
     parser.add_argument("--out", type=Path, default=ROOT / "build" / "demo")
     parser.add_argument("--no-verify", action="store_true", help="convert only")
+    parser.add_argument("--timing-runs", type=int, default=1, metavar="N",
+                        help="run each side N more times for the median time and memory "
+                             "(default 1)")
     args = parser.parse_args(argv)
     if not args.corpus.is_dir():
         print(f"porter demo: no corpus folder at {args.corpus}", file=sys.stderr)
@@ -62,7 +67,8 @@ def main(argv: list[str] | None = None) -> int:
         line = (f"{script.stem:<24} {summary['sites']:>5} {summary['todo']:>4} "
                 f"{'' if lowest is None else f'{lowest:.2f}':>6}  ")
         if not args.no_verify:
-            verdict = verify(script, result.converted_text, script.parent)
+            verdict = verify(script, result.converted_text, script.parent,
+                             VerifyOptions(timing_runs=max(0, args.timing_runs)))
             verdicts.append(verdict.verdict)
             verdicts_by_source[result.source] = verdict
             line += (f"{verdict.verdict:<8} {_cost(verdict.original):>16} "
@@ -73,6 +79,11 @@ def main(argv: list[str] | None = None) -> int:
     page = render_review(results, verdicts=verdicts_by_source or None,
                          title="porter review: the demo corpus")
     (args.out / "review.html").write_text(page, encoding="utf-8")
+    if verdicts:
+        print(f"\ntime and peak memory: each script alone, from its first line to its end (its "
+              f"imports included, not the capture of its frames), the median of "
+              f"{max(0, args.timing_runs) + 1} runs each (review.html says where a timing run "
+              f"failed and the figures rest on fewer)")
     print()
     print(summary_text(results))
     if verdicts:

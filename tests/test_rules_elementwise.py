@@ -182,3 +182,38 @@ def test_float_of_the_parameter_ports() -> None:
 
 def test_boolean_operators_in_a_lambda_port() -> None:
     check_ports(FRAME + 'r = df["v"].map(lambda x: x > 1 and x < 5)\n', "&")
+
+
+# -- pd.cut ---------------------------------------------------------------------------------------
+
+@pytest.mark.parametrize("call", [
+    'pd.cut(df["v"], bins=[-5, 0, 2.5, 10], labels=["low", "mid", "high"])',
+    'pd.cut(df["v"], [-3, 0, 2.5, 10], labels=["low", "mid", "high"], include_lowest=True)',
+    'pd.cut(df["v"], [-3, 0, 2.5, 10], labels=["low", "mid", "high"], right=False)',
+    'pd.cut(df["n"], [0, 2, 4, 6], labels=["a", "b", "c"])',
+    'pd.cut(df["v"], [0, 1, np.inf], labels=["some", "many"], ordered=False)',
+    'pd.cut(df["v"], bins=[-10, 0, 100], labels=["é", "ü"])',
+])
+def test_cut_matches_pandas(call: str) -> None:
+    result = differential(FRAME + f'df["band"] = {call}\nresult = df\n')
+    assert not result.todos
+
+
+def test_cut_bands_sort_in_the_labels_order() -> None:
+    # labels that sort the other way as text: pandas sorts by the categories' order
+    result = differential(FRAME + 'df["band"] = pd.cut(df["v"], [-5, 0, 5, 20], '
+                          'labels=["z-low", "m-mid", "a-high"])\n'
+                          'result = df.sort_values("band", kind="stable")\n')
+    assert "pl.Enum" in result.converted_text
+
+
+@pytest.mark.parametrize("call", [
+    'pd.cut(df["v"], 3)',
+    'pd.cut(df["v"], [0, 1, 2])',
+    'pd.cut(df["v"], [0, 1, 2], labels=False)',
+    'pd.cut(df["v"], [0, 1, 2], labels=["a", "a"])',
+    'pd.cut(df["k"], [0, 1, 2], labels=["a", "b"])',
+])
+def test_cut_todo(call: str) -> None:
+    result = convert(FRAME + f'df["band"] = {call}\n')
+    assert any(s.key == "pd.cut" for s in result.todos)

@@ -210,7 +210,60 @@ def _split_call(text: str, prefix: str, suffix: str) -> str | None:
     if parts is None:
         return None
     func, args = parts
-    return "\n".join([f"{prefix}{func}(", *(f"    {a}," for a in args), f"){suffix}"])
+    lines = [f"{prefix}{func}("]
+    for arg in args:
+        lines += _split_argument(arg, "    ", LINE_LENGTH)
+    return "\n".join([*lines, f"){suffix}"])
+
+
+def _split_argument(arg: str, indent: str, width: int) -> list[str]:
+    """One argument of a call laid out one per line: a chain too long for its line is broken
+    before each step (inside the call's brackets no extra parentheses are needed)."""
+    if len(indent) + len(arg) + 1 <= width:
+        return [f"{indent}{arg},"]
+    parts = _chain_parts(arg)
+    if parts is None:
+        return [f"{indent}{arg},"]
+    head, steps = parts
+    return [f"{indent}{head}", *(f"{indent}{step}" for step in steps[:-1]), f"{indent}{steps[-1]},"]
+
+
+def _chain_parts(arg: str) -> tuple[str, list[str]] | None:
+    """`kw=a.b(x).c(y)` -> ("kw=a.b(x)", [".c(y)"]): the steps of a method chain that is
+    called on another call (pl.when(...).then(...), pl.col(...).str.strip_chars().alias(...))."""
+    import libcst as cst
+
+    try:
+        call = cst.parse_expression(f"_({arg})")
+    except cst.ParserSyntaxError:
+        return None
+    assert isinstance(call, cst.Call)
+    if len(call.args) != 1:
+        return None
+    module = cst.Module([])
+    keyword = call.args[0].keyword
+    node: cst.BaseExpression = call.args[0].value
+    steps: list[str] = []
+    while isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute) \
+            and not node.lpar and not node.func.lpar:
+        inner = node.func.value
+        # the step is everything after the receiver: .method(args)
+        step = module.code_for_node(node)[len(module.code_for_node(inner)):]
+        attributes: list[str] = []
+        while isinstance(inner, cst.Attribute) and not isinstance(inner.value, (cst.Name,)) \
+                and not inner.lpar:
+            attributes.insert(0, "." + inner.attr.value)  # .str / .dt between two calls
+            inner = inner.value
+        if not isinstance(inner, cst.Call):
+            break
+        steps.insert(0, "".join(attributes) + step)
+        node = inner
+    if len(steps) < 2:
+        return None
+    head = module.code_for_node(node)
+    if keyword is not None:
+        head = f"{keyword.value}={head}"
+    return head, steps
 
 
 def _call_parts(prefix: str, text: str) -> tuple[str, list[str]] | None:
@@ -236,4 +289,7 @@ def _split_step(step: str, width: int) -> list[str]:
     if parts is None:
         return ["    " + step]
     method, args = parts
-    return [f"    {method}(", *(f"        {a}," for a in args), "    )"]
+    lines = [f"    {method}("]
+    for arg in args:
+        lines += _split_argument(arg, "        ", width + 4)
+    return [*lines, "    )"]

@@ -18,6 +18,7 @@ from porter.mapping import MappingTable, load_table
 from porter.model import FileResult, Site
 from porter.reports import folder_report
 from porter.verify.model import VerifyResult
+from porter.verify.text import speed_claim, time_range, what_is_measured
 
 RowKind = Literal["equal", "replace", "insert", "delete"]
 Level = Literal["high", "medium", "low"]
@@ -131,9 +132,12 @@ class OutputView:
 @dataclass
 class SideRunView:
     exit_code: int | None
-    wall_s: float
+    wall_s: float  # the script's own: the median over `runs` runs
     peak_mib: float | None
     failure: str | None
+    runs: int = 1
+    time_range: str = ""  # "0.41–0.47s" over the runs, "" after one
+    capture_s: float | None = None
 
 
 @dataclass
@@ -143,6 +147,8 @@ class VerdictView:
     original: SideRunView
     converted: SideRunView
     notes: list[str]
+    measured: str = ""  # what the time and memory columns are, and how many runs
+    speed: str | None = None  # the speed claim, with the runs it rests on
 
 
 @dataclass
@@ -451,10 +457,11 @@ def verdict_view(result: VerifyResult) -> VerdictView:
             first_rows=[(r["row"], r["original"], r["converted"]) for r in data.get("first_rows", [])]))
 
     def side(run) -> SideRunView:  # type: ignore[no-untyped-def]
-        return SideRunView(run.exit_code, run.wall_s, run.peak_mib, run.failure)
+        return SideRunView(run.exit_code, run.wall_s, run.peak_mib, run.failure, run.runs,
+                           time_range(run), run.capture_s)
 
     return VerdictView(result.verdict, outputs, side(result.original), side(result.converted),
-                       list(result.notes))
+                       list(result.notes), what_is_measured(result), speed_claim(result))
 
 
 def build_page(results: list[FileResult], *, verdicts: dict[str, VerifyResult] | None = None,

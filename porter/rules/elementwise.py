@@ -264,3 +264,52 @@ def element_lookup(call: PandasCall, ctx: RuleContext) -> Value:
         code = element.code.method("replace_strict", code_mapping,
                                    default=ctx.expr(default, element.frame))
     return derived_column(element, code)
+
+
+@rule("pd.cut")
+def cut(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.cut(s, bins=[edges], labels=[...]) -> pl.when(in bin 1).then(label 1)... as pl.Enum.
+
+    Handles: right-closed bins (left-closed with right=False), include_lowest, values outside
+    every bin and missing values (NaN fails every bin, as in pandas) are missing; the labels
+    become an Enum, which sorts in the labels' order as pandas sorts its categorical (ordered or
+    not).
+    Caveats: a number of bins (the edges depend on the data), labels=None (pandas' Interval
+    values), labels=False (bin numbers) and repeated labels are TODOs.
+    """
+    ctx.reject_unknown(call, "x", "bins", "right", "labels", "include_lowest", "ordered",
+                       positional=3)
+    column = call.arg("x", 0)
+    if not isinstance(column, Column):
+        raise Unsupported("cutting something other than a column")
+    if column.dtype in ("str", "bool", "datetime", "date", "category"):
+        raise Unsupported(f"cutting a {column.dtype} column")
+    bins = call.const("bins", 1, None, kinds=(list, tuple))
+    if bins is None or not all(isinstance(b, (int, float)) and not isinstance(b, bool) for b in bins):
+        raise Unsupported("bins given as a number of bins (the edges depend on the data)")
+    if any(a >= b for a, b in zip(bins, bins[1:])) or len(bins) < 2:
+        raise Unsupported("bins that do not increase (pandas raises)")
+    right = call.const("right", 2, True, kinds=(bool,))
+    labels = call.const("labels", 3, None, kinds=(list, tuple, bool))
+    if not isinstance(labels, (list, tuple)) or not all(isinstance(x, str) for x in labels):
+        raise Unsupported("labels other than a list of texts (pandas' Interval values or bin "
+                          "numbers)")
+    if len(labels) != len(bins) - 1:
+        raise Unsupported("a label count that does not match the bins (pandas raises)")
+    if len(set(labels)) != len(labels):
+        raise Unsupported("repeated labels")
+    include_lowest = call.const("include_lowest", None, False, kinds=(bool,))
+    call.const("ordered", None, True, kinds=(bool,))  # the Enum sorts in the labels' order either way
+    x = column.code
+    code: Code | None = None
+    for i, (low, high, label) in enumerate(zip(bins, bins[1:], labels)):
+        closed = "right" if right else "left"
+        if i == 0 and include_lowest and right:
+            closed = "both"
+        test = x.method("is_between", low, high, closed=closed)
+        step = emit.pl("lit", label)
+        code = emit.pl("when", test).method("then", step) if code is None \
+            else code.method("when", test).method("then", step)
+    assert code is not None
+    code = code.method("cast", emit.pl("Enum", list(labels)))
+    return derived_column(column, code, dtype="category")

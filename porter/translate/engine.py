@@ -436,9 +436,9 @@ class _Walker:
             if isinstance(value, (Frame, Column, Grouped)):
                 value = evaluator.handed_to_unknown(value, node)
             sites += value.sites
-            text = value.code.text if "\n" not in value.code.text else f"({value.code.text})"
+            text = value.code.text
             changed = changed or text != self.services.code_for(node)
-            parts.append(text)
+            parts.append(text if _one_expression(text) else f"({text})")
         if not changed:
             return None, sites
         return "assert " + ", ".join(parts), sites
@@ -513,7 +513,8 @@ class _Walker:
                         cst.MultiplyAssign: cst.Multiply(), cst.DivideAssign: cst.Divide()}.get(
                 type(stmt.operator))
             if operator is not None:
-                expr = cst.BinaryOperation(left=stmt.target, operator=operator, right=stmt.value)
+                expr = cst.BinaryOperation(left=_whole_column(stmt.target), operator=operator,
+                                           right=stmt.value)
                 value = evaluator.eval(expr)
                 result = self.set_item(stmt.target, value, env, evaluator, indent)
                 if result is not None:
@@ -728,6 +729,31 @@ def _mutating_calls(stmt: cst.CSTNode) -> list[tuple[str, str]]:
 
     stmt.visit(Calls())
     return found
+
+
+def _whole_column(target: cst.Subscript) -> cst.BaseExpression:
+    """`df.loc[rows, "c"] += v` is `df.loc[rows, "c"] = df["c"] + v`: pandas aligns `v` on the
+    index, so on the rows written the sum is the same, and the whole column keeps `v` an
+    expression of the same frame (never a Series placed by position)."""
+    owner = target.value
+    if isinstance(owner, cst.Attribute) and owner.attr.value == "loc" \
+            and isinstance(owner.value, cst.Name) and len(target.slice) == 2 \
+            and isinstance(target.slice[1].slice, cst.Index) \
+            and isinstance(target.slice[1].slice.value, cst.SimpleString):
+        column = target.slice[1].slice.value
+        return cst.Subscript(value=owner.value, slice=[cst.SubscriptElement(cst.Index(column))])
+    return target
+
+
+def _one_expression(text: str) -> bool:
+    """Whether `text` can follow `assert ` as written (one line, or already in brackets)."""
+    if "\n" not in text:
+        return True
+    try:
+        ast.parse(f"assert {text}")
+    except SyntaxError:
+        return False
+    return True
 
 
 def _marked_key(comment: str) -> str | None:

@@ -168,6 +168,8 @@ class Evaluator:
             qualname = f"{receiver.qualname}.{name}"
             if qualname in ("numpy.nan", "numpy.NaN", "pandas.NA", "pandas.NaT"):
                 return self.opaque(node, math.nan)
+            if qualname == "numpy.inf":
+                return self.opaque(node, math.inf)
             return Module(Code(self.source(node)), qualname=qualname, sites=receiver.sites)
         if isinstance(receiver, Frame):
             if name in ("loc", "iloc"):

@@ -6,7 +6,7 @@ relative paths and neither side sees the other's outputs; the user's folder is n
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from pathlib import Path
 import shutil
 import tempfile
@@ -25,6 +25,9 @@ class VerifyOptions:
     rtol: float = 1e-9
     ignore_order: bool = False
     keep: bool = False
+    # runs of each side after the verifying one, with no capture, for the median time and
+    # peak memory and their spread; the command line's --timing-runs defaults to 1
+    timing_runs: int = 0
 
 
 def verify(original: str | Path, converted_text: str | None, data_dir: str | Path,
@@ -49,15 +52,54 @@ def verify(original: str | Path, converted_text: str | None, data_dir: str | Pat
     root = Path(tempfile.mkdtemp(prefix="porter-verify-"))
     try:
         sides = {}
-        for side, text in (("original", original_text), ("converted", converted_text)):
+        texts = {"original": original_text, "converted": converted_text}
+        for side, text in texts.items():
             (root / side).mkdir()
             sides[side] = run_side(text, script_rel, data, root / side,
                                    timeout=options.timeout, memory_mib=options.memory_mib)
         result = _judge(sides["original"], sides["converted"], options)
+        if options.timing_runs > 0 and result.verdict != "error":
+            result = _timed(result, texts, script_rel, data, root, options)
+        if not options.keep:  # the working copies are removed below: name none
+            result = replace(result, original=replace(result.original, workdir=None),
+                             converted=replace(result.converted, workdir=None))
     finally:
         if not options.keep:
             shutil.rmtree(root, ignore_errors=True)
     return result
+
+
+def _timed(result: VerifyResult, texts: dict[str, str], script_rel: str, data: Path,
+           root: Path, options: VerifyOptions) -> VerifyResult:
+    """Run each side `options.timing_runs` more times without capture, each time in a fresh
+    copy of the data folder (removed after), the sides taking turns so that a change in the
+    machine's load falls on both; the figures become the medians over all runs."""
+    walls: dict[str, list[float]] = {side: [] for side in texts}
+    peaks: dict[str, list[float | None]] = {side: [] for side in texts}
+    stopped: dict[str, str] = {}
+    for number in range(1, options.timing_runs + 1):
+        for side, text in texts.items():
+            if side in stopped:
+                continue
+            place = root / side / f"timing-{number}"
+            place.mkdir()
+            try:
+                run = run_side(text, script_rel, data, place, timeout=options.timeout,
+                               memory_mib=options.memory_mib, capture=False).run
+            finally:
+                shutil.rmtree(place, ignore_errors=True)
+            if run.failure or run.measured != "script":
+                stopped[side] = f"timing run {number} of the {side} script " \
+                                f"{run.failure or 'did not report its figures'}"
+                continue
+            walls[side].append(run.wall_s)
+            peaks[side].append(run.peak_mib)
+    runs = {"original": result.original, "converted": result.converted}
+    timed = {side: runs[side].with_runs(walls[side], peaks[side]) for side in texts}
+    notes = [f"{reason}: its time and memory rest on {timed[side].runs} run(s)"
+             for side, reason in stopped.items()]
+    return replace(result, original=timed["original"], converted=timed["converted"],
+                   notes=result.notes + tuple(notes))
 
 
 def _script_place(original: Path, data: Path) -> str:

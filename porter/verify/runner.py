@@ -5,6 +5,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 import hashlib
+import json
 import os
 from pathlib import Path
 import pickle
@@ -48,8 +49,12 @@ def _limits(memory_mib: int | None):  # type: ignore[no-untyped-def]
 
 
 def run_side(script_text: str, script_rel: str, data_dir: Path, side_dir: Path, *,
-             timeout: float, memory_mib: int | None) -> SideOutputs:
-    """Copy `data_dir` into `side_dir/work`, put the script at `script_rel` in it, run it there."""
+             timeout: float, memory_mib: int | None, capture: bool = True) -> SideOutputs:
+    """Copy `data_dir` into `side_dir/work`, put the script at `script_rel` in it, run it there.
+
+    `capture=False` is a timing run: the child keeps no frames and the files the script wrote
+    are not looked at; only how it ended and what it cost are reported.
+    """
     work = side_dir / "work"
     shutil.copytree(data_dir, work, symlinks=True)
     script = work / script_rel
@@ -57,12 +62,41 @@ def run_side(script_text: str, script_rel: str, data_dir: Path, side_dir: Path, 
     script.write_text(script_text, encoding="utf-8")
     dump = side_dir / "frames"
     dump.mkdir()
-    before = _fingerprints(work)
+    before = _fingerprints(work) if capture else {}
 
+    command = [sys.executable, "-m", "porter.verify.child", str(script), str(dump)]
+    if not capture:
+        command.append("--no-capture")
+    exit_code, stdout, stderr, timed_out, process_wall = _run_child(command, work, timeout,
+                                                                    memory_mib)
+    failure = _failure(exit_code, stderr, timed_out, memory_mib)
+    measure = _measure(dump)
+    if measure is not None:  # the script's own figures, read in the child as it ended
+        run = SideRun(exit_code=exit_code, wall_s=measure["wall_s"],
+                      peak_mib=measure.get("peak_mib"), stdout=stdout, stderr=stderr,
+                      failure=failure, workdir=str(work), capture_s=measure.get("capture_s"),
+                      baseline_mib=measure.get("baseline_mib"), measured="script")
+    else:  # it never got to the end (timed out, killed): the child process's life, no peak
+        run = SideRun(exit_code=exit_code, wall_s=process_wall, peak_mib=None, stdout=stdout,
+                      stderr=stderr, failure=failure, workdir=str(work), measured="process")
+    result = SideOutputs(run)
+    if not capture:
+        return result
+    after = _fingerprints(work)
+    result.files = {rel: work / rel for rel, digest in after.items()
+                    if before.get(rel) != digest and rel != script_rel}
+    if failure is None:
+        _load_frames(dump, result)
+    return result
+
+
+def _run_child(command: list[str], work: Path, timeout: float,
+               memory_mib: int | None) -> tuple[int, str, str, bool, float]:
+    """Run the child to its end or the time-out: exit code, stdout, stderr, whether it was
+    stopped, and the wall time of the whole process (start-up and capture included)."""
     env = dict(os.environ)
     env["PYTHONDONTWRITEBYTECODE"] = "1"
     env.setdefault("PYTHONHASHSEED", "0")
-    command = [sys.executable, "-m", "porter.verify.child", str(script), str(dump)]
     started = time.perf_counter()
     proc = subprocess.Popen(command, cwd=work, stdout=subprocess.PIPE, stderr=subprocess.PIPE,
                             env=env, start_new_session=True, preexec_fn=_limits(memory_mib))
@@ -83,26 +117,24 @@ def run_side(script_text: str, script_rel: str, data_dir: Path, side_dir: Path, 
 
     timer = threading.Timer(timeout, stop)
     timer.start()
-    _, status, usage = os.wait4(proc.pid, 0)  # the child's own resource usage (peak memory)
+    # no resource usage from wait4 here: the child's ru_maxrss starts from this (forking)
+    # process's own resident memory, so the child reads its peak itself (see child.py)
+    exit_code = proc.wait()
     timer.cancel()
     wall = time.perf_counter() - started
-    proc.returncode = os.waitstatus_to_exitcode(status)
     for reader in readers:
         reader.join(timeout=5)
     stdout = b"".join(out).decode("utf-8", "replace")
     stderr = b"".join(err).decode("utf-8", "replace")
-    exit_code = proc.returncode
-    peak = usage.ru_maxrss / 1024  # KiB on Linux
-    failure = _failure(exit_code, stderr, timed_out.is_set(), memory_mib)
-    run = SideRun(exit_code=exit_code, wall_s=wall, peak_mib=peak, stdout=stdout,
-                  stderr=stderr, failure=failure, workdir=str(work))
-    result = SideOutputs(run)
-    after = _fingerprints(work)
-    result.files = {rel: work / rel for rel, digest in after.items()
-                    if before.get(rel) != digest and rel != script_rel}
-    if failure is None:
-        _load_frames(dump, result)
-    return result
+    return exit_code, stdout, stderr, timed_out.is_set(), wall
+
+
+def _measure(dump: Path) -> dict[str, Any] | None:
+    try:
+        measure = json.loads((dump / "measure.json").read_text(encoding="utf-8"))
+    except (OSError, ValueError):
+        return None
+    return measure if isinstance(measure, dict) and "wall_s" in measure else None
 
 
 def _failure(exit_code: int, stderr: str, timed_out: bool, memory_mib: int | None) -> str | None:

@@ -18,7 +18,9 @@ batches = batches.with_columns(
     grade_name=pl.col("grade").replace_strict(GRADES, default=None),
 )
 batches = batches.with_columns(
-    size=pl.when(pl.col("litres") >= 100).then(pl.lit("large")).otherwise(pl.lit("small")),
+    size=pl.when(pl.col("litres") >= 100)
+    .then(pl.lit("large"))
+    .otherwise(pl.lit("small")),
 )
 batches = batches.with_columns(
     tier=pl.col("grade").replace_strict(GRADES, default=pl.lit("unknown")),

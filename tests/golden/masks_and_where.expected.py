@@ -17,7 +17,9 @@ hives = hives.with_columns(
     label=pl.when(strong).then(pl.lit("strong")).otherwise(pl.lit("watch")),
 )
 hives = hives.with_columns(
-    label=pl.when(pl.col("weight_kg").is_null()).then(pl.lit("unweighed")).otherwise(pl.col("label")),
+    label=pl.when(pl.col("weight_kg").is_null())
+    .then(pl.lit("unweighed"))
+    .otherwise(pl.col("label")),
 )
 watch = hives.filter(pl.col("label").ne_missing(pl.lit("strong")))
 watch.sink_csv("watch_list.csv")

@@ -29,7 +29,9 @@ branches = (
 )
 print(
     len(branches),
-    loans.select(pl.col("member").drop_nulls().n_unique().cast(pl.Int64)).collect().item(),
+    loans.select(pl.col("member").drop_nulls().n_unique().cast(pl.Int64))
+    .collect()
+    .item(),
 )
 per_branch = (
     loans

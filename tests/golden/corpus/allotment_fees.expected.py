@@ -51,7 +51,10 @@ def load_payments(path):
         .with_columns(pl.col("paid_on").str.to_datetime(time_unit="us"))
     )
     payments = payments.with_columns(
-        method=pl.col("method").str.strip_chars().str.to_lowercase().replace("chq", "cheque"),
+        method=pl.col("method")
+        .str.strip_chars()
+        .str.to_lowercase()
+        .replace("chq", "cheque"),
     )
     return payments.filter(pl.col("amount") > 0)
 

@@ -54,10 +54,17 @@ def main():
         apiary=pl.col("apiary").str.strip_chars().str.to_lowercase(),
     )
     harvests = harvests.with_columns(
-        moisture_check=pl.when(pl.col("moisture_pct") > MAX_MOISTURE).then(pl.lit("fail")).otherwise(pl.lit("pass")),
+        moisture_check=pl.when(pl.col("moisture_pct") > MAX_MOISTURE)
+        .then(pl.lit("fail"))
+        .otherwise(pl.lit("pass")),
     )
     print(
-        harvests.select(pl.col("moisture_check")).drop_nulls().group_by("moisture_check", maintain_order=True).agg(pl.len().cast(pl.Int64).alias("count")).sort("count", descending=True, maintain_order=True).collect(),
+        harvests.select(pl.col("moisture_check"))
+        .drop_nulls()
+        .group_by("moisture_check", maintain_order=True)
+        .agg(pl.len().cast(pl.Int64).alias("count"))
+        .sort("count", descending=True, maintain_order=True)
+        .collect(),
     )
 
     per_hive = (

@@ -116,5 +116,10 @@ by_recipe = (
 by_recipe = by_recipe.with_columns(mean_loss=pl.col("mean_loss").round(2))
 by_recipe.with_columns(PANDAS_CSV_DATETIMES).sink_csv("recipe_loss.csv")
 print(
-    wheels.select(pl.col("status")).drop_nulls().group_by("status", maintain_order=True).agg(pl.len().cast(pl.Int64).alias("count")).sort("count", descending=True, maintain_order=True).collect(),
+    wheels.select(pl.col("status"))
+    .drop_nulls()
+    .group_by("status", maintain_order=True)
+    .agg(pl.len().cast(pl.Int64).alias("count"))
+    .sort("count", descending=True, maintain_order=True)
+    .collect(),
 )

@@ -26,7 +26,10 @@ def tidy_codes(batches):
         wool=pl.col("batch_code").str.ends_with("-W").fill_null(False),
     )
     batches = batches.with_columns(
-        dye=pl.col("dye").str.strip_chars().str.to_lowercase().str.replace_all(" hull", "", literal=True),
+        dye=pl.col("dye")
+        .str.strip_chars()
+        .str.to_lowercase()
+        .str.replace_all(" hull", "", literal=True),
     )
     return batches
 

@@ -99,7 +99,9 @@ quota = pl.scan_csv(
     infer_schema_length=None,
 )
 print(
-    landings.select(pl.col("species").unique(maintain_order=True)).collect().to_series(),
+    landings.select(pl.col("species").unique(maintain_order=True))
+    .collect()
+    .to_series(),
 )
 
 status = quota_status(landings, quota).collect().lazy()

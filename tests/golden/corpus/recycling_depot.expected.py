@@ -49,7 +49,13 @@ print(
     drops.select(pl.col("material").unique(maintain_order=True)).collect().to_series(),
 )
 print(
-    drops.select(pl.col("material")).drop_nulls().group_by("material", maintain_order=True).agg(pl.len().cast(pl.Int64).alias("count")).sort("count", descending=True, maintain_order=True).head(3).collect(),
+    drops.select(pl.col("material"))
+    .drop_nulls()
+    .group_by("material", maintain_order=True)
+    .agg(pl.len().cast(pl.Int64).alias("count"))
+    .sort("count", descending=True, maintain_order=True)
+    .head(3)
+    .collect(),
 )
 
 per_material = (

@@ -26,7 +26,9 @@ meals = meals.with_columns(
     class_group=pl.col("class_group").str.strip_chars().str.to_uppercase(),
 )
 meals = meals.with_columns(
-    tariff=pl.when(pl.col("reduced_rate") == "yes").then(pl.lit("reduced")).otherwise(pl.lit("standard")),
+    tariff=pl.when(pl.col("reduced_rate") == "yes")
+    .then(pl.lit("reduced"))
+    .otherwise(pl.lit("standard")),
 )
 meals = meals.with_columns(
     unit_price=pl.col("tariff").replace_strict(MEAL_PRICE, default=None),
@@ -39,7 +41,9 @@ absent = meals.filter(~(pl.col("portions") > 0).fill_null(False))
 print(
     served.select(pl.len()).collect().item(),
     absent.select(pl.len()).collect().item(),
-    served.select(pl.col("pupil_id").drop_nulls().n_unique().cast(pl.Int64)).collect().item(),
+    served.select(pl.col("pupil_id").drop_nulls().n_unique().cast(pl.Int64))
+    .collect()
+    .item(),
 )
 
 per_class = (

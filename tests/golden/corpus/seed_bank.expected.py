@@ -96,5 +96,7 @@ weak = (
 )
 weak.sink_csv("weak_cold_room.csv")
 print(
-    weak.select(pl.col("accession").drop_nulls().n_unique().cast(pl.Int64)).collect().item(),
+    weak.select(pl.col("accession").drop_nulls().n_unique().cast(pl.Int64))
+    .collect()
+    .item(),
 )
