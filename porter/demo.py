@@ -80,10 +80,12 @@ def main(argv: list[str] | None = None) -> int:
                          title="porter review: the demo corpus")
     (args.out / "review.html").write_text(page, encoding="utf-8")
     if verdicts:
+        runs = max(0, args.timing_runs) + 1
+        basis = "1 run each" if runs == 1 else (
+            f"the median of {runs} runs each (review.html says where a timing run failed and "
+            f"the figures rest on fewer)")
         print(f"\ntime and peak memory: each script alone, from its first line to its end (its "
-              f"imports included, not the capture of its frames), the median of "
-              f"{max(0, args.timing_runs) + 1} runs each (review.html says where a timing run "
-              f"failed and the figures rest on fewer)")
+              f"imports included, not the capture of its frames), {basis}")
     print()
     print(summary_text(results))
     if verdicts:

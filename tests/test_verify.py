@@ -99,6 +99,9 @@ def test_cli_verify_exit_codes_and_json(tmp_path, capsys):
     assert "SAME" in out and "totals.csv" in out
     data = json.loads(report.read_text())
     assert data["verdict"] == "same" and {"exit_code", "wall_s", "peak_mib"} <= set(data["original"])
+    assert {"measured", "runs", "wall_s_runs", "peak_mib_runs", "capture_s",
+            "baseline_mib"} <= set(data["converted"])
+    assert data["original"]["measured"] == "script" and data["original"]["runs"] == 2
     assert {"name", "kind", "status", "detail"} <= set(data["outputs"][0])
     assert main(["verify", str(FIXTURES / "harvest.py"), str(FIXTURES / "broken_join.py"),
                  "--data", str(FIXTURES)]) == 1

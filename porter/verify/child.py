@@ -4,7 +4,7 @@
 
 The script runs exactly as `python SCRIPT` would (its folder first on sys.path, `__name__` set
 to "__main__"). The moment it ends — normally, with SystemExit or with an exception — the
-child writes what the script alone cost to DUMP_DIR/measure.json (see `measure`). Then, unless
+child writes what the script alone cost to DUMP_DIR/measure.json (below). Then, unless
 `--no-capture`, every frame-valued global (pandas DataFrame/Series, Polars
 DataFrame/LazyFrame/Series; LazyFrames collected) is pickled into DUMP_DIR as NAME.pickle, and
 Polars expressions left in globals are listed in DUMP_DIR/expressions.txt; the time that takes
@@ -18,10 +18,11 @@ What is measured, and what is not:
   capture of its frames afterwards are not counted.
 - `peak_mib`: the resident-memory high-water mark of this process, read when the script ends
   (before the capture, which collects LazyFrames and pickles frames, can raise it). It is the
-  whole process's: the interpreter's own start-up memory is included, and is reported alone as
-  `baseline_mib` (read just before the script starts). Nothing is subtracted — a mark cannot be
-  split — so a reader comparing two scripts compares like with like: both include it. Processes
-  the script starts are not counted.
+  whole process's: the interpreter's own start-up memory (with this module's imports) is
+  included, and is reported alone as `baseline_mib` (read just before the script starts).
+  Nothing is subtracted: running a script costs its interpreter too, both sides carry the same
+  baseline, and a reader who wants the script's growth alone can subtract the reported one.
+  Processes the script starts are not counted.
 
 On Linux the mark is VmHWM from /proc/self/status, the high-water mark of this process's own
 memory since it started. It is not `getrusage(RUSAGE_SELF).ru_maxrss`: Linux keeps, in
