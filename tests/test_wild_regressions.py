@@ -240,3 +240,30 @@ def test_a_function_passed_to_pipe_takes_what_pipe_gives_it():
         direct = tax(df)
         result = df.pipe(tax)
     """, "direct", "result")
+
+
+def test_a_series_from_other_rows_is_never_put_back_by_position():
+    # pandas aligns the assigned Series on the index: rows missing from it become NaN. A
+    # Series computed by pandas from another frame (here longer) stays a pandas statement;
+    # it was put back by position, and failed or landed on other rows.
+    text = both("""
+        import pandas as pd
+        df = pd.DataFrame({"berth": ["A", "B", "C"], "tons": [5.0, 7.5, 1.0]})
+        other = pd.DataFrame({"tons": [1.0, 2.0, 3.0, 4.0]})
+        df["scaled"] = other["tons"].apply(lambda t: t * 2 if t > 1 else None)
+        result = df
+    """, "result")
+    assert "pl.Series(" not in text
+
+
+def test_a_series_computed_row_for_row_from_the_frame_is_put_back():
+    text = both("""
+        import pandas as pd
+        def grade(t):
+            return "heavy" if t > 4 else "light"
+        df = pd.DataFrame({"berth": ["A", "B", "C"], "tons": [5.0, 7.5, 1.0]})
+        df = df[df["tons"] > 2]
+        df["grade"] = df["tons"].apply(grade)
+        result = df
+    """, "result")
+    assert "pl.Series(" in text

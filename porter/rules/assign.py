@@ -58,8 +58,13 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
         ctx.lower(f"`{value.code.text}` is taken to be a single value broadcast to every row", 0.8)
         return emit.pl("lit", value.code), None
     if isinstance(value, PandasValue):
-        ctx.needs_review("a Series computed by pandas is put back by position (pandas aligns it "
-                         "on the index); port the computation to an expression")
+        if value.rows is None or value.rows != frame.rows:
+            # pandas aligns the Series on the index: by position it could land on other rows
+            raise Unsupported("a Series computed by pandas whose rows porter cannot match to "
+                              "the frame's (pandas aligns it on the index): the statement stays "
+                              "pandas")
+        ctx.needs_review("a Series computed by pandas, row for row from this frame, is put back "
+                         "by position; port the computation to an expression")
         return emit.call("pl.Series", value.code, nan_to_null=True), None
     raise Unsupported("this value cannot be assigned as a column")
 

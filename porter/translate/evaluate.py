@@ -490,7 +490,7 @@ class Evaluator:
                 and not self.services.inside_from_pandas(node)):
             code = emit.pl("from_pandas", fallback).method("lazy")
             return Frame(code, sites=sites)
-        return PandasValue(fallback, sites=sites)
+        return PandasValue(fallback, sites=sites, rows=_rows_kept(key, call))
 
     def todo_unhandled(self, func: Value, node: cst.Call, reason: str) -> Value:
         if isinstance(func, BoundMethod):
@@ -562,6 +562,55 @@ _DT_PROPERTIES = {"year", "month", "day", "hour", "minute", "second", "microseco
 _BUILTIN_RULES = {"len": "builtin.len", "round": "{kind}.round", "abs": "{kind}.abs",
                   "list": "builtin.list", "sum": "builtin.sum", "max": "builtin.max",
                   "min": "builtin.min"}
+
+
+# pandas calls whose result has one value per row of their input, in the same order and under
+# the same labels (element-wise functions and windows)
+_ROW_KEEPING_METHODS = frozenset({
+    "apply", "map", "transform", "astype", "fillna", "ffill", "bfill", "where", "mask", "clip",
+    "round", "abs", "shift", "diff", "pct_change", "cumsum", "cumprod", "cummax", "cummin",
+    "cumcount", "rank", "replace", "isin", "between", "isna", "notna", "isnull", "notnull",
+    "interpolate", "case_when", "convert_dtypes", "infer_objects", "rename", "copy",
+})
+_ROW_KEEPING_FUNCTIONS = frozenset({
+    "pd.to_datetime", "pd.to_numeric", "pd.to_timedelta", "pd.cut", "pd.qcut", "pd.isna",
+    "pd.notna", "pd.isnull", "pd.notnull",
+})
+_ROW_CHANGING_STR = frozenset({"split", "rsplit", "extract", "extractall", "partition",
+                               "rpartition", "get_dummies", "cat"})
+
+
+def _rows_kept(key: str, call: PandasCall) -> int | None:
+    """The rows of the frame whose Series a TODO'd call keeps row for row, if it does."""
+    receiver = call.receiver
+    method = key.rsplit(".", 1)[-1]
+    if isinstance(receiver, Accessor):
+        if method in _ROW_CHANGING_STR or call.kwargs.get("expand") is not None:
+            return None
+        base: Value | None = receiver.column
+    elif isinstance(receiver, Column) and method in _ROW_KEEPING_METHODS:
+        base = receiver
+    elif isinstance(receiver, Grouped) and method in _ROW_KEEPING_METHODS - {"apply", "map"}:
+        base = receiver
+    elif receiver is None and key in _ROW_KEEPING_FUNCTIONS and call.args:
+        base = call.args[0]
+    elif isinstance(receiver, Frame) and method == "apply" and _row_wise(call):
+        base = receiver  # df.apply(f, axis=1): one value per row, under the row's label
+    else:
+        return None
+    frame = base.frame if isinstance(base, (Column, Grouped)) else \
+        base if isinstance(base, Frame) else None
+    if frame is None or frame.index:
+        return None
+    inputs = [v for v in (*call.args, *call.kwargs.values()) if isinstance(v, (Column, Frame))]
+    if any((v.frame.rows if isinstance(v, Column) else v.rows) != frame.rows for v in inputs):
+        return None  # another frame's Series: pandas aligns it on labels porter does not keep
+    return frame.rows
+
+
+def _row_wise(call: PandasCall) -> bool:
+    axis = call.kwargs.get("axis", call.args[1] if len(call.args) > 1 else None)
+    return isinstance(axis, Opaque) and axis.const in (1, "columns")
 
 
 def _prefix(value: Value) -> str:

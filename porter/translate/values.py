@@ -111,7 +111,14 @@ class Scalar(Value):
 
 @dataclass(frozen=True)
 class PandasValue(Value):
-    """A real pandas object at run time: code porter handed over to pandas."""
+    """A real pandas object at run time: code porter handed over to pandas.
+
+    rows      set when the object is a Series with one value per row of the frame with these
+              rows, in the same order and under the same labels (an element-wise or window
+              result of one of its columns): only then can it be put back by position.
+    """
+
+    rows: int | None = field(default=None, kw_only=True)
 
 
 @dataclass(frozen=True)

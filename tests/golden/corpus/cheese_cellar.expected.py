@@ -46,7 +46,7 @@ wheels = wheels.with_columns(
 wheels = wheels.with_columns(loss_pct=pl.col("loss_pct").clip(0, None))
 wheels = wheels.with_columns(made_month=pl.col("made_on").dt.month())
 # TODO(porter): frame.apply: write the function as column expressions (pl.when / arithmetic); map_elements is a last resort
-# TODO(porter): frame.setitem: a Series computed by pandas is put back by position (pandas aligns it on the index); port the computation to an expression
+# TODO(porter): frame.setitem: a Series computed by pandas, row for row from this frame, is put back by position; port the computation to an expression
 wheels = wheels.with_columns(
     status=pl.Series(wheels.collect().to_pandas().apply(sale_status, axis=1), nan_to_null=True),
 )
