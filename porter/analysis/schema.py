@@ -29,6 +29,23 @@ def dtype_name(dtype: pl.DataType) -> str | None:
     return None
 
 
+class FileSchema(dict[str, str]):
+    """porter's dtype names per column, in file order; `polars` holds the exact Polars dtypes
+    (as code, `pl.Int64`) when every column has one a scan can be told."""
+
+    polars: dict[str, str] | None = None
+
+
+def polars_code(dtype: pl.DataType) -> str | None:
+    """`pl.Int64` for a dtype a CSV scan reads as is; None for one it cannot be told."""
+    plain = {pl.Int64: "pl.Int64", pl.Float64: "pl.Float64", pl.String: "pl.String",
+             pl.Boolean: "pl.Boolean", pl.Int32: "pl.Int32", pl.Float32: "pl.Float32"}
+    for kind, code in plain.items():
+        if dtype == kind:
+            return code
+    return None
+
+
 class SchemaReader:
     """Looks input files up under the data folder; remembers what it read."""
 
@@ -57,4 +74,9 @@ class SchemaReader:
                 return None
         except (pl.exceptions.PolarsError, OSError, ValueError):
             return None
-        return {name: dtype_name(dtype) or "other" for name, dtype in schema.items()}
+        found = FileSchema({name: dtype_name(dtype) or "other" for name, dtype in schema.items()})
+        if reader == "csv":
+            codes = {name: polars_code(dtype) for name, dtype in schema.items()}
+            if all(codes.values()):
+                found.polars = codes  # type: ignore[assignment]
+        return found

@@ -221,11 +221,33 @@ def _split_argument(arg: str, indent: str, width: int) -> list[str]:
     before each step (inside the call's brackets no extra parentheses are needed)."""
     if len(indent) + len(arg) + 1 <= width:
         return [f"{indent}{arg},"]
+    entries = _dict_parts(arg)
+    if entries is not None:
+        head, items = entries
+        return [f"{indent}{head}{{", *(f"{indent}    {item}," for item in items), f"{indent}}},"]
     parts = _chain_parts(arg)
     if parts is None:
         return [f"{indent}{arg},"]
     head, steps = parts
     return [f"{indent}{head}", *(f"{indent}{step}" for step in steps[:-1]), f"{indent}{steps[-1]},"]
+
+
+def _dict_parts(arg: str) -> tuple[str, list[str]] | None:
+    """`kw={"a": 1, "b": 2}` -> ("kw=", ['"a": 1', '"b": 2']): a dict laid out one entry per line."""
+    import libcst as cst
+
+    try:
+        call = cst.parse_expression(f"_({arg})")
+    except cst.ParserSyntaxError:
+        return None
+    assert isinstance(call, cst.Call)
+    if len(call.args) != 1 or not isinstance(call.args[0].value, cst.Dict):
+        return None
+    module = cst.Module([])
+    keyword = call.args[0].keyword
+    items = [module.code_for_node(e.with_changes(comma=cst.MaybeSentinel.DEFAULT)).strip()
+             for e in call.args[0].value.elements]
+    return (f"{keyword.value}=" if keyword is not None else ""), items
 
 
 def _chain_parts(arg: str) -> tuple[str, list[str]] | None:

@@ -111,8 +111,18 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower("nrows: pandas infers column types from the rows it reads, Polars from the "
                   "whole file (a column whose later rows hold text is read as text)", 0.9)
 
-    code = emit.pl("scan_csv", source.code, **kwargs)
     schema = ctx.input_schema("csv", source.const if isinstance(source, Opaque) else None, options)
+    exact = getattr(schema, "polars", None)
+    if exact and "" not in exact:
+        # --data gave the file: the scan is told the types porter read (inferring them over
+        # the whole file again would read it twice); a later file whose values do not fit
+        # them fails loudly instead of reading other types
+        kwargs.pop("schema_overrides", None)
+        kwargs.pop("infer_schema_length", None)
+        kwargs = {"schema": {c: overrides.get(c, emit.atom(t)) for c, t in exact.items()}, **kwargs}
+        ctx.lower("the column types are the ones read from --data: a file whose values do not "
+                  "fit them fails to read (pandas would read other types)", 0.95)
+    code = emit.pl("scan_csv", source.code, **kwargs)
     if schema and any(re.search(r"_duplicated_\d+$", c) for c in schema):
         raise ctx.todo("the header repeats a name: pandas names the copy 'x.1' (an empty one "
                        "'Unnamed: n'), Polars '_duplicated_n'")

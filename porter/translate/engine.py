@@ -351,6 +351,34 @@ class _Walker:
 
     def small(self, stmt: cst.BaseSmallStatement, env: dict[str, Value], indent: str) -> tuple[str | None, list[SiteDraft]]:
         """Rewrite one small statement; None when it stays as written."""
+        back = self.back_to_polars(stmt, env, indent)
+        text, sites = back if back is not None else self.rewrite_small(stmt, env, indent)
+        if text is not None and _same_code(text, self.services.code_for(stmt)):
+            return None, sites  # only the layout would change: the statement stays as written
+        return text, sites
+
+    def back_to_polars(self, stmt: cst.BaseSmallStatement, env: dict[str, Value],
+                       indent: str) -> tuple[str | None, list[SiteDraft]] | None:
+        """A frame that an earlier statement kept on pandas comes back to Polars
+        (`pl.from_pandas`) at the first statement porter can rewrite whole with it, so that one
+        TODO does not keep the rest of the script on pandas."""
+        names = [n for n in _names_read(stmt) if isinstance(env.get(n), PandasValue)
+                 and env[n].frame is not None]  # type: ignore[union-attr]
+        if not names:
+            return None
+        trial = dict(env)
+        for name in names:
+            trial[name] = env[name].frame  # type: ignore[union-attr, assignment]
+        text, sites = self.rewrite_small(stmt, trial, indent)
+        if any(s.status == "todo" for s in sites):
+            return None  # the statement needs pandas anyway: the frame stays there
+        env.clear()
+        env.update(trial)
+        lines = [emit.layout_chain(_from_pandas(name, trial[name]), indent, f"{name} = ")  # type: ignore[arg-type]
+                 for name in names]
+        return "\n".join([*lines, text if text is not None else self.services.code_for(stmt).strip()]), sites
+
+    def rewrite_small(self, stmt: cst.BaseSmallStatement, env: dict[str, Value], indent: str) -> tuple[str | None, list[SiteDraft]]:
         handed, handed_sites = self.hand_over_changed(stmt, env)
         text, sites = self._small(stmt, env, indent)
         if not handed:
@@ -383,7 +411,7 @@ class _Walker:
                 # it in place ("assignment destination is read-only"): a copy of its own
                 code = code.method("copy")
             lines.append(f"{name} = {code.text}")
-            env[name] = PandasValue(emit.atom(name))
+            env[name] = PandasValue(emit.atom(name), frame=_after_change(name, value, None, what))
             sites.append(SiteDraft(f"{kind}.{what}", "handover", "todo", 0.0,
                                    f"`{what}` changes the {'frame' if kind == 'frame' else 'Series'} "
                                    f"in place, which porter does not rewrite: `{name}` is handed "
@@ -556,8 +584,8 @@ class _Walker:
         pandas, the frame is handed over first and the statement kept as written."""
         if not isinstance(result, PandasValue):
             return self.bind(name, result, env, indent)
-        env[name] = PandasValue(emit.atom(name))
         statement = self.current_small
+        env[name] = PandasValue(emit.atom(name), frame=_after_change(name, frame, statement))
         if isinstance(statement, (cst.Assign, cst.AugAssign)) and statement.value is not None:
             # other frames the statement reads are handed over too (`other.pct`), never left
             # as LazyFrames or expressions inside pandas code
@@ -729,6 +757,68 @@ def _mutating_calls(stmt: cst.CSTNode) -> list[tuple[str, str]]:
 
     stmt.visit(Calls())
     return found
+
+
+def _from_pandas(name: str, frame: Frame) -> Code:
+    """`pl.from_pandas(name).lazy()`; category columns come back as an Enum of pandas' own
+    categories, which sorts as pandas sorts them (from_pandas makes them Categorical)."""
+    code = emit.pl("from_pandas", emit.atom(name)).method("lazy")
+    categories = [c for c, t in frame.dtypes if t == "category"]
+    if categories:
+        code = code.method("with_columns", *(
+            emit.col(c).method("cast", emit.pl("Enum", emit.atom(f"{name}[{emit.lit(c).text}].cat.categories")))
+            for c in categories))
+    return code
+
+
+def _same_code(a: str, b: str) -> bool:
+    """Whether two texts are the same code, laid out differently."""
+    try:
+        return ast.dump(ast.parse(a.strip())) == ast.dump(ast.parse(b.strip()))
+    except SyntaxError:
+        return False
+
+
+def _names_read(stmt: cst.CSTNode) -> list[str]:
+    """The names a statement reads, in order of first use."""
+    try:
+        tree = ast.parse(cst.Module([]).code_for_node(stmt).strip())
+    except SyntaxError:
+        return []
+    names: list[str] = []
+    for node in ast.walk(tree):
+        if isinstance(node, ast.Name) and isinstance(node.ctx, ast.Load) and node.id not in names:
+            names.append(node.id)
+    return names
+
+
+def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
+                  what: str = "") -> Frame | None:
+    """What porter knows of a frame after a statement kept on pandas changed it, as the frame
+    that `pl.from_pandas(name).lazy()` would give back; None when it cannot come back (labels
+    held in the index, or pandas' number labels). `what` names an in-place change."""
+    if not isinstance(frame, Frame) or frame.index or frame.number_labels:
+        return None
+    columns: tuple[str, ...] | None = None
+    dtypes: tuple[tuple[str, str], ...] = ()
+    if what in ("insert", "at", "iat", "attrs", "flags") or what.startswith(("attrs.", "flags.")):
+        # the other columns keep their values: category columns are still categories
+        dtypes = tuple((c, t) for c, t in frame.dtypes if t == "category")
+    target = None
+    if isinstance(statement, (cst.Assign, cst.AugAssign)):
+        target = statement.targets[0].target if isinstance(statement, cst.Assign) \
+            and len(statement.targets) == 1 else getattr(statement, "target", None)
+    key = None
+    if isinstance(target, cst.Subscript) and target.slice:
+        last = target.slice[-1].slice
+        if isinstance(last, cst.Index) and isinstance(last.value, cst.SimpleString):
+            key = last.value.evaluated_value
+    if isinstance(key, str) and frame.columns is not None:
+        # `df["c"] = ...` / `df.loc[m, "c"] = ...`: one column made or changed
+        columns = frame.columns if key in frame.columns else (*frame.columns, key)
+        dtypes = tuple((c, t) for c, t in frame.dtypes if c != key)
+    return Frame(emit.atom(name), columns=columns, dtypes=dtypes,
+                 labels_intact=frame.labels_intact)
 
 
 def _whole_column(target: cst.Subscript) -> cst.BaseExpression:

@@ -487,7 +487,8 @@ class Evaluator:
         fallback = handover.pandas_fallback(call, self.source, node)
         sites = _child_sites(call, None) + (site,)
         if (call.receiver is None and entry is not None and entry.extra.get("returns") == "frame"
-                and not self.services.inside_from_pandas(node)):
+                and not self.services.inside_from_pandas(node)
+                and not {"chunksize", "iterator"} & set(call.kwargs)):  # those give chunks
             code = emit.pl("from_pandas", fallback).method("lazy")
             return Frame(code, sites=sites)
         return PandasValue(fallback, sites=sites, rows=_rows_kept(key, call))

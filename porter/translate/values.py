@@ -119,6 +119,9 @@ class PandasValue(Value):
     """
 
     rows: int | None = field(default=None, kw_only=True)
+    # a name holding a frame that a statement kept on pandas changed: the frame as porter knew
+    # it afterwards, so that the next statement porter can rewrite takes it back to Polars
+    frame: "Frame | None" = field(default=None, kw_only=True)
 
 
 @dataclass(frozen=True)

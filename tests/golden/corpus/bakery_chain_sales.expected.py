@@ -99,7 +99,11 @@ closing = (
 first_last = (
     opening
     .rename(
-        {"sale_date": "sale_date_first", "product": "product_first", "units": "units_first"},
+        {
+            "sale_date": "sale_date_first",
+            "product": "product_first",
+            "units": "units_first",
+        },
     )
     .join(
         closing.rename({"sale_date": "sale_date_last", "product": "product_last", "units": "units_last"}),

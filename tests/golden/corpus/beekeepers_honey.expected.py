@@ -23,7 +23,10 @@ PANDAS_CSV_DATETIMES = (
 )
 
 APIARIES = pl.LazyFrame(
-    {"apiary": ["combe aux abeilles", "pré haut", "rucher du moulin"], "altitude_m": [640, 1120, 415]},
+    {
+        "apiary": ["combe aux abeilles", "pré haut", "rucher du moulin"],
+        "altitude_m": [640, 1120, 415],
+    },
 )
 MAX_MOISTURE = 18.6
 

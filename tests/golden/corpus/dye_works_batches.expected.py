@@ -13,7 +13,10 @@ PANDAS_NA_VALUES = [
 ]
 
 DYE_COSTS = pl.LazyFrame(
-    {"dye": ["indigo", "madder", "weld", "walnut", "cochineal"], "cost_per_liter": [0.42, 0.35, 0.18, 0.12, 0.95]},
+    {
+        "dye": ["indigo", "madder", "weld", "walnut", "cochineal"],
+        "cost_per_liter": [0.42, 0.35, 0.18, 0.12, 0.95],
+    },
 )
 
 

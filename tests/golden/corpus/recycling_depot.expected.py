@@ -13,7 +13,10 @@ PANDAS_NA_VALUES = [
 ]
 
 CREDITS = pl.LazyFrame(
-    {"material": ["glass", "paper", "metal", "textiles", "e-waste"], "credit_per_kg": [0.02, 0.03, 0.11, 0.05, 0.0]},
+    {
+        "material": ["glass", "paper", "metal", "textiles", "e-waste"],
+        "credit_per_kg": [0.02, 0.03, 0.11, 0.05, 0.0],
+    },
 )
 
 week1 = pl.scan_csv(

@@ -1,0 +1,118 @@
+"""Hand-overs to pandas and back, checked against pandas itself (the reference implementation).
+
+A statement porter keeps on pandas gets its frame once, and the frame comes back to Polars
+(`pl.from_pandas`) at the next statement porter can rewrite whole; a Series computed by pandas
+is put back by position only when it was computed row for row from the same rows. Each shape
+below is one a real script takes; the data is an invented harbour's cargo log.
+"""
+
+from __future__ import annotations
+
+import ast
+import textwrap
+
+import pytest
+
+from porter.api import OLDEST_PYTHON, convert_source
+from support import assert_same_value, run
+
+
+@pytest.fixture(autouse=True)
+def cargo(tmp_path, monkeypatch):
+    (tmp_path / "cargo.csv").write_text(
+        "berth,kind,tons,crates\nA,grain,5.0,3\nB,timber,,2\nA,grain,1.5,1\nC,salt,7.25,\n"
+        "B,grain,0.5,4\nA,timber,3.0,2\nC,salt,,1\nÅ,fish,2.0,5\n", encoding="utf-8")
+    monkeypatch.chdir(tmp_path)
+
+
+def both(source: str, *names: str) -> str:
+    source = textwrap.dedent(source)
+    result = convert_source(source)
+    ast.parse(result.converted_text, feature_version=OLDEST_PYTHON)
+    expected, actual = run(source), run(result.converted_text)
+    for name in names:
+        try:
+            assert_same_value(expected[name], actual[name])
+        except AssertionError as exc:
+            raise AssertionError(f"{name}: {exc}\n{result.converted_text}") from None
+    return result.converted_text
+
+
+def test_a_todo_in_the_middle_of_a_pipeline_does_not_keep_the_rest_on_pandas():
+    text = both("""
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        df = df[df["tons"].notna()]
+        df.insert(1, "port", "Sandvik")
+        df["heavy"] = df["tons"] > 2
+        totals = df.groupby("kind")["crates"].sum().reset_index()
+        first = df.head(3)
+    """, "totals", "first", "df")
+    assert "pl.from_pandas(df).lazy()" in text
+    assert "group_by" in text
+
+
+def test_a_row_function_after_a_filter_is_put_back_on_its_rows():
+    both("""
+        import pandas as pd
+        def label(row):
+            return f"{row['berth']}-{row['kind']}"
+        df = pd.read_csv("cargo.csv")
+        df = df[df["crates"] > 1]
+        df["label"] = df.apply(label, axis=1)
+        df["tons2"] = df["tons"] * 2
+        result = df
+    """, "result")
+
+
+def test_a_row_function_after_a_sort_is_put_back_on_its_rows():
+    both("""
+        import pandas as pd
+        def label(row):
+            return row["berth"] * 2
+        df = pd.read_csv("cargo.csv")
+        df = df.sort_values("tons", kind="stable")
+        df["label"] = df.apply(label, axis=1)
+        result = df.reset_index(drop=True)
+    """, "result")
+
+
+def test_a_series_computed_by_a_pandas_groupby_is_put_back():
+    both("""
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        df["share"] = df.groupby("berth")["tons"].transform(lambda s: s / s.sum())
+        result = df
+    """, "result")
+
+
+def test_a_masked_augmented_assignment_aligns_like_pandas():
+    text = both("""
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        df = df[df["crates"] > 1]
+        mask = df["kind"] == "grain"
+        df.loc[mask, "tons"] += df["crates"] * 3.0
+        result = df
+    """, "result")
+    assert "pl.Series(" not in text
+
+
+def test_ordered_bands_keep_their_order_after_a_hand_over():
+    both("""
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        df["band"] = pd.cut(df["tons"], [0, 2, 5, 10], labels=["small", "medium", "large"])
+        df.insert(0, "port", "Sandvik")
+        result = df.sort_values("band", kind="stable")
+    """, "result")
+
+
+def test_list_values_cross_the_boundary_as_lists():
+    both("""
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        df["parts"] = df["kind"].str.split("i")
+        df.insert(0, "port", "Sandvik")
+        result = df.explode("parts")
+    """, "result")
