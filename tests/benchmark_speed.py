@@ -40,7 +40,7 @@ SECTION = "## Converted scripts against pandas"
 
 def scale(data: Path, out: Path, rows: int, seed: int = 7) -> dict[str, int]:
     """Copy `data` to `out`, drawing the event tables up to `rows` rows. Returns rows per file."""
-    shutil.copytree(data, out)
+    shutil.copytree(data, out)  # the parent folder is made too
     tables = {p: _read(p) for p in sorted(out.rglob("*")) if p.suffix in (".csv", ".parquet")}
     largest = max((len(t) for t in tables.values()), default=0)
     sizes = {}
@@ -79,12 +79,13 @@ def count_calls(text: str) -> dict[str, int]:
 def bench(case: Path, rows: int, runs: int, work: Path) -> dict[str, object]:
     script = case / f"{case.name}.py"
     converted = work / f"{case.name}_polars.py"
-    subprocess.run([*PORTER, "convert", str(script), "-o", str(converted), "--data",
-                    str(case / "data")], check=True, capture_output=True, text=True, cwd=ROOT)
-    scaled = work / "data"
-    sizes = scale(case / "data", scaled, rows)
+    # the scripts read their files from data/ beside them: the scenario folder is the data
+    subprocess.run([*PORTER, "convert", str(script), "-o", str(converted), "--data", str(case)],
+                   check=True, capture_output=True, text=True, cwd=ROOT)
+    folder = work / "scenario"
+    sizes = scale(case / "data", folder / "data", rows)
     verdict_file = work / "verdict.json"
-    done = subprocess.run([*PORTER, "verify", str(script), str(converted), "--data", str(scaled),
+    done = subprocess.run([*PORTER, "verify", str(script), str(converted), "--data", str(folder),
                            "--timing-runs", str(max(runs - 1, 0)), "--json", str(verdict_file),
                            "--timeout", "1200"], capture_output=True, text=True, cwd=ROOT)
     if not verdict_file.exists():

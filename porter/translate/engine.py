@@ -96,6 +96,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
             break
         services.functions = updated
 
+    services.collect_at = plans_to_collect(services.consumers, services.frame_parents)
     services.call_sites = {}
     walker = _Walker(services, facts, emit_code=True)
     body, _ = walker.block(module.body, _initial_env(facts), module.default_indent, "")
@@ -346,8 +347,16 @@ class _Walker:
                     uses.add((statement, 1))
 
     def computed_once(self) -> bool:
-        """A frame whose data several statements compute is collected once where it is made."""
-        return len(self.services.consumers.get(self.statement_key, ())) >= 2
+        """A frame whose plan would run more than once is collected once where it is made."""
+        return self.statement_key in self.services.collect_at
+
+    def note_parents(self, code: Code, env: dict[str, Value]) -> None:
+        """Remember which named frames the plan bound by this statement reads."""
+        parents = self.services.frame_parents.setdefault(self.statement_key, set())
+        for name in _names_in(code.text):
+            value = env.get(name)
+            if isinstance(value, Frame) and value.binding is not None:
+                parents.add(value.binding)
 
     def small(self, stmt: cst.BaseSmallStatement, env: dict[str, Value], indent: str) -> tuple[str | None, list[SiteDraft]]:
         """Rewrite one small statement; None when it stays as written."""
@@ -639,6 +648,7 @@ class _Walker:
         code = value.code
         if isinstance(value, Frame):
             self.note_stale_series(name, value, env)
+            self.note_parents(code, env)
             env[name] = replace(value, code=emit.atom(name), sites=(), binding=self.statement_key)
             if self.emit_code and self.computed_once() and not _is_collected(code):
                 code = code.method("collect").method("lazy")
@@ -769,6 +779,54 @@ def _from_pandas(name: str, frame: Frame) -> Code:
             emit.col(c).method("cast", emit.pl("Enum", emit.atom(f"{name}[{emit.lit(c).text}].cat.categories")))
             for c in categories))
     return code
+
+
+def plans_to_collect(consumers: dict[int, set[tuple[int, int]]],
+                     parents: dict[int, set[int]]) -> frozenset[int]:
+    """The bindings whose plans are collected where they are made (the materialisation model).
+
+    A statement that computes a frame (a sink, a print, a scalar, a hand-over to pandas) runs
+    the plan of every frame it reads, and of every frame those were made from, back to the
+    last one that was collected. A binding is collected when its plan would otherwise run two
+    or more times: its own executions, plus one for each frame made from it that is itself
+    collected, plus the executions of each that is not. A chain used once stays lazy up to its
+    sink; a frame shared by several outputs is computed once, at the last point they share.
+    """
+    children: dict[int, set[int]] = {}
+    for child, owners in parents.items():
+        for owner in owners:
+            if owner != child:
+                children.setdefault(owner, set()).add(child)
+    runs: dict[int, int] = {}
+    collected: set[int] = set()
+
+    def count(binding: int, path: frozenset[int]) -> int:
+        if binding in runs:
+            return runs[binding]
+        total = len(consumers.get(binding, ()))
+        for child in children.get(binding, ()):
+            if child in path:
+                continue  # a loop that rebinds the name: counted through its executions
+            total += 1 if count(child, path | {child}) >= 2 else runs[child]
+        runs[binding] = total
+        if total >= 2:
+            collected.add(binding)
+        return total
+
+    for binding in list(parents) + list(consumers):
+        count(binding, frozenset({binding}))
+    return frozenset(collected)
+
+
+def _names_in(text: str) -> set[str]:
+    try:
+        tree = ast.parse(text.strip(), mode="eval")
+    except SyntaxError:
+        try:
+            tree = ast.parse(text.strip())
+        except SyntaxError:
+            return set()
+    return {node.id for node in ast.walk(tree) if isinstance(node, ast.Name)}
 
 
 def _same_code(a: str, b: str) -> bool:

@@ -67,6 +67,10 @@ class Services:
     datetimes_possible: bool = True
     # statements that compute each named frame's data, by the assignment that named it
     consumers: dict[int, set[tuple[int, int]]] = field(default_factory=dict)
+    # the bindings whose frames each binding's plan reads (`b = a.filter(...)`: a -> b)
+    frame_parents: dict[int, set[int]] = field(default_factory=dict)
+    # the bindings collected where they are made: plans that would otherwise run more than once
+    collect_at: frozenset[int] = frozenset()
     # Series kept in a name whose frame's name later holds other rows: kept as a frame of its own
     stale_series: set[int] = field(default_factory=set)
     statement_lines: tuple[int, int] = (0, 0)  # lines of the statement being rewritten

@@ -7,10 +7,10 @@ PANDAS_NA_VALUES = [
 ]
 
 limit = 30
-meters = pl.scan_csv(
-    "meters.csv",
-    null_values=PANDAS_NA_VALUES,
-    infer_schema_length=None,
+meters = (
+    pl.scan_csv("meters.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
+    .collect()
+    .lazy()
 )
 high = (
     meters

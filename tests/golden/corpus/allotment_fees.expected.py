@@ -61,7 +61,7 @@ def load_payments(path):
 
 def main():
     plots = load_plots("data/plots.csv")
-    payments = load_payments("data/payments.csv")
+    payments = load_payments("data/payments.csv").collect().lazy()
     print(plots.collect_schema())
 
     paid = (

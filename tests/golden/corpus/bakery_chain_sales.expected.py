@@ -24,13 +24,20 @@ PANDAS_CSV_DATETIMES = (
 sales = (
     pl.scan_csv("data/sales.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
     .with_columns(pl.col("sale_date").str.to_datetime(time_unit="us"))
+    .collect()
+    .lazy()
 )
 print((sales.select(pl.len()).collect().item(), len(sales.collect_schema())))
 
-sales = sales.with_columns(
-    revenue=(pl.col("units") * pl.col("unit_price")).round(2),
-    day=pl.col("sale_date").dt.day(),
-    waste_units=pl.col("waste_units").fill_null(0),
+sales = (
+    sales
+    .with_columns(
+        revenue=(pl.col("units") * pl.col("unit_price")).round(2),
+        day=pl.col("sale_date").dt.day(),
+        waste_units=pl.col("waste_units").fill_null(0),
+    )
+    .collect()
+    .lazy()
 )
 
 shop_stats = (
@@ -69,10 +76,11 @@ products_per_shop = (
     .sort("shop")
 )
 products_per_shop = products_per_shop.rename({"product": "products_sold"})
-week = sales.sort(
-    ["shop", "sale_date", "product"],
-    nulls_last=True,
-    maintain_order=True,
+week = (
+    sales
+    .sort(["shop", "sale_date", "product"], nulls_last=True, maintain_order=True)
+    .collect()
+    .lazy()
 )
 opening = (
     week

@@ -22,11 +22,10 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
-APIARIES = pl.LazyFrame(
-    {
-        "apiary": ["combe aux abeilles", "pré haut", "rucher du moulin"],
-        "altitude_m": [640, 1120, 415],
-    },
+APIARIES = (
+    pl.LazyFrame({"apiary": ["combe aux abeilles", "pré haut", "rucher du moulin"], "altitude_m": [640, 1120, 415]})
+    .collect()
+    .lazy()
 )
 MAX_MOISTURE = 18.6
 
@@ -42,7 +41,7 @@ def load_season(path, season):
 def main():
     spring = load_season("data/spring_2024.csv", "spring")
     summer = load_season("data/summer_2024.csv", "summer")
-    harvests = pl.concat([spring, summer], how="diagonal_relaxed")
+    harvests = pl.concat([spring, summer], how="diagonal_relaxed").collect().lazy()
     print(harvests.select(pl.len()).collect().item())
 
     harvests = harvests.unique(
@@ -56,10 +55,15 @@ def main():
     harvests = harvests.with_columns(
         apiary=pl.col("apiary").str.strip_chars().str.to_lowercase(),
     )
-    harvests = harvests.with_columns(
-        moisture_check=pl.when(pl.col("moisture_pct") > MAX_MOISTURE)
-        .then(pl.lit("fail"))
-        .otherwise(pl.lit("pass")),
+    harvests = (
+        harvests
+        .with_columns(
+            moisture_check=pl.when(pl.col("moisture_pct") > MAX_MOISTURE)
+            .then(pl.lit("fail"))
+            .otherwise(pl.lit("pass")),
+        )
+        .collect()
+        .lazy()
     )
     print(
         harvests.select(pl.col("moisture_check"))

@@ -26,7 +26,7 @@ wheels = (
     pl.scan_csv("data/wheels.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
     .with_columns(pl.col("made_on").str.to_datetime(time_unit="us"))
 )
-wheels = wheels.drop_nulls("now_kg")
+wheels = wheels.drop_nulls("now_kg").collect().lazy()
 print(wheels.select(pl.len()).collect().item())
 
 
@@ -44,13 +44,18 @@ wheels = wheels.with_columns(
     loss_pct=(((pl.col("start_kg") - pl.col("now_kg")) / pl.col("start_kg")).fill_nan(None) * 100).round(2),
 )
 wheels = wheels.with_columns(loss_pct=pl.col("loss_pct").clip(0, None))
-wheels = wheels.with_columns(made_month=pl.col("made_on").dt.month())
+wheels = wheels.with_columns(made_month=pl.col("made_on").dt.month()).collect().lazy()
 # TODO(porter): frame.apply: write the function as column expressions (pl.when / arithmetic); map_elements is a last resort
 # TODO(porter): frame.setitem: a Series computed by pandas, row for row from this frame, is put back by position; port the computation to an expression
 wheels = wheels.with_columns(
     status=pl.Series(wheels.collect().to_pandas().apply(sale_status, axis=1), nan_to_null=True),
 )
-wheels = wheels.with_columns(recipe=pl.col("recipe").cast(pl.Categorical))
+wheels = (
+    wheels
+    .with_columns(recipe=pl.col("recipe").cast(pl.Categorical))
+    .collect()
+    .lazy()
+)
 
 status = (
     wheels

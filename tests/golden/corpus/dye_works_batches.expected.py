@@ -12,11 +12,10 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
-DYE_COSTS = pl.LazyFrame(
-    {
-        "dye": ["indigo", "madder", "weld", "walnut", "cochineal"],
-        "cost_per_liter": [0.42, 0.35, 0.18, 0.12, 0.95],
-    },
+DYE_COSTS = (
+    pl.LazyFrame({"dye": ["indigo", "madder", "weld", "walnut", "cochineal"], "cost_per_liter": [0.42, 0.35, 0.18, 0.12, 0.95]})
+    .collect()
+    .lazy()
 )
 
 
@@ -54,8 +53,15 @@ batches = batches.with_columns(shift=pl.col("shift").cast(pl.Categorical))
 batches = batches.with_columns(
     liters_per_kg=(pl.col("liters_used") / pl.col("fabric_kg")).fill_nan(None),
 )
-batches = batches.with_columns(
-    heat=pl.when(pl.col("temp_c") >= 95).then(pl.lit("boil")).otherwise(pl.lit("hot")),
+batches = (
+    batches
+    .with_columns(
+        heat=pl.when(pl.col("temp_c") >= 95)
+        .then(pl.lit("boil"))
+        .otherwise(pl.lit("hot")),
+    )
+    .collect()
+    .lazy()
 )
 print(batches.head(5).collect())
 

@@ -25,10 +25,10 @@ PANDAS_CSV_DATETIMES = (
 SENSORS = ["temp_c", "humidity_pct", "soil_moisture", "co2_ppm"]
 HOT_LIMIT = {"tropical": 30, "arid": 34, "fern gully": 24}
 
-log = pl.scan_csv(
-    "data/sensors.csv",
-    null_values=PANDAS_NA_VALUES + ["err"],
-    infer_schema_length=None,
+log = (
+    pl.scan_csv("data/sensors.csv", null_values=PANDAS_NA_VALUES + ["err"], infer_schema_length=None)
+    .collect()
+    .lazy()
 )
 print(log.select(pl.len()).collect().item())
 
@@ -36,7 +36,7 @@ log = log.with_columns(house=pl.col("house").str.strip_chars().str.to_lowercase(
 log = log.with_columns(
     reading_time=pl.col("reading_time").str.to_datetime("%Y-%m-%d %H:%M"),
 )
-log = log.with_columns(day=pl.col("reading_time").dt.date())
+log = log.with_columns(day=pl.col("reading_time").dt.date()).collect().lazy()
 
 gaps = (
     log
@@ -56,7 +56,7 @@ log = log.filter(
     ~pl.all_horizontal(pl.col(["temp_c", "humidity_pct", "soil_moisture", "co2_ppm"]).is_null()),
 )
 log = log.with_columns(soil_moisture=pl.col("soil_moisture").fill_null(0))
-log = log.filter(pl.sum_horizontal(pl.all().is_not_null()) >= 6)
+log = log.filter(pl.sum_horizontal(pl.all().is_not_null()) >= 6).collect().lazy()
 print(log.select(pl.len()).collect().item(), "usable readings")
 
 daily = (

@@ -68,6 +68,8 @@ def main():
             nulls_equal=True,
             maintain_order="left_right",
         )
+        .collect()
+        .lazy()
     )
     print(
         loans.select(pl.len()).collect().item(),

@@ -26,10 +26,10 @@ stays = (
     pl.scan_parquet("data/stays.parquet")
     .with_columns(pl.col(pl.Float32, pl.Float64).fill_nan(None))
 )
-huts = pl.scan_csv(
-    "data/huts.csv",
-    null_values=PANDAS_NA_VALUES,
-    infer_schema_length=None,
+huts = (
+    pl.scan_csv("data/huts.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
+    .collect()
+    .lazy()
 )
 print(stays.collect_schema())
 

@@ -28,6 +28,8 @@ GRADE_PRICES = pl.LazyFrame(
 weighings = (
     pl.scan_csv("data/weighings.csv", null_values=PANDAS_NA_VALUES + ["-"], infer_schema_length=None)
     .with_columns(pl.col("pick_date").str.to_datetime(time_unit="us"))
+    .collect()
+    .lazy()
 )
 growers = pl.scan_csv(
     "data/growers.csv",
@@ -44,6 +46,8 @@ clean = (
         month=pl.col("pick_date").dt.month(),
     )
     .drop_nulls(["kg", "grade"])
+    .collect()
+    .lazy()
 )
 
 premium = (

@@ -15,10 +15,10 @@ PANDAS_NA_VALUES = [
 
 MEAL_PRICE = {"standard": 3.40, "reduced": 1.10}
 
-meals = pl.scan_csv(
-    "data/meals.csv",
-    null_values=PANDAS_NA_VALUES + ["none"],
-    infer_schema_length=None,
+meals = (
+    pl.scan_csv("data/meals.csv", null_values=PANDAS_NA_VALUES + ["none"], infer_schema_length=None)
+    .collect()
+    .lazy()
 )
 print(meals.select(pl.len()).collect().item())
 
@@ -34,9 +34,14 @@ meals = meals.with_columns(
     unit_price=pl.col("tariff").replace_strict(MEAL_PRICE, default=None),
 )
 meals = meals.with_columns(cost=pl.col("portions") * pl.col("unit_price"))
-meals = meals.with_columns(second_helping=(pl.col("portions") > 1).fill_null(False))
+meals = (
+    meals
+    .with_columns(second_helping=(pl.col("portions") > 1).fill_null(False))
+    .collect()
+    .lazy()
+)
 
-served = meals.filter(pl.col("portions") > 0)
+served = meals.filter(pl.col("portions") > 0).collect().lazy()
 absent = meals.filter(~(pl.col("portions") > 0).fill_null(False))
 print(
     served.select(pl.len()).collect().item(),

@@ -64,11 +64,10 @@ def species_summary(tests):
 
 
 tests = add_rates(load_tests("data/germination_tests.csv")).collect().lazy()
-registry = pl.scan_csv(
-    "data/accessions.csv",
-    null_values=PANDAS_NA_VALUES,
-    schema_overrides={"accession_id": pl.String},
-    infer_schema_length=None,
+registry = (
+    pl.scan_csv("data/accessions.csv", null_values=PANDAS_NA_VALUES, schema_overrides={"accession_id": pl.String}, infer_schema_length=None)
+    .collect()
+    .lazy()
 )
 rated = attach_registry(tests, registry).collect().lazy()
 print(tests.select(pl.len()).collect().item(), rated.select(pl.len()).collect().item())

@@ -17,13 +17,10 @@ TARIFF_RATES = {"domestic": 1.10, "farm": 0.75, "holiday": 1.60}
 STANDING_CHARGE = 8.0
 col = "usage_m3"
 
-df = pl.scan_csv(
-    "data/readings.csv",
-    separator=";",
-    null_values=PANDAS_NA_VALUES + ["missing"],
-    infer_schema_length=None,
-    skip_rows=3,
-    n_rows=150,
+df = (
+    pl.scan_csv("data/readings.csv", separator=";", null_values=PANDAS_NA_VALUES + ["missing"], infer_schema_length=None, skip_rows=3, n_rows=150)
+    .collect()
+    .lazy()
 )
 print((df.select(pl.len()).collect().item(), len(df.collect_schema())))
 
@@ -35,8 +32,13 @@ df = df.with_columns(
 df = df.with_columns(usage_m3=pl.col("usage_m3").clip(0, 120))
 df = df.with_columns(rate=pl.col("tariff").replace_strict(TARIFF_RATES, default=None))
 df = df.with_columns(bill=(pl.col(col) * pl.col("rate") + STANDING_CHARGE).round(2))
-df = df.with_columns(
-    band=pl.when(pl.col(col) > 40).then(pl.lit("high")).otherwise(pl.lit("normal")),
+df = (
+    df
+    .with_columns(
+        band=pl.when(pl.col(col) > 40).then(pl.lit("high")).otherwise(pl.lit("normal")),
+    )
+    .collect()
+    .lazy()
 )
 print(df.slice(2, 8).collect())
 
