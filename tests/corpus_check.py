@@ -44,7 +44,16 @@ def run_case(name: str, tmp: Path) -> CaseRun:
     return CaseRun(result, sides["pandas"][0], sides["polars"][0], sides["pandas"][1], sides["polars"][1])
 
 
-def compare_case(run: CaseRun) -> None:
+# Outputs where a float sum rounded afterwards sits on an exact tie: Polars adds a group's
+# floats in another order than pandas, so the last binary digit differs and round(2) goes the
+# other way (documented on groupby.mean in docs/coverage.md). Only these columns may differ,
+# and only by one in the last decimal written.
+KNOWN_TIES = {"cheese_cellar": {"recipe_loss.csv": "mean_loss"}}
+# the same, as `porter verify` names the outputs (the file, and the frame left in globals)
+KNOWN_TIE_OUTPUTS = {"cheese_cellar": {"recipe_loss.csv", "by_recipe"}}
+
+
+def compare_case(run: CaseRun, ties: dict[str, str] | None = None) -> None:
     assert run.pandas_files, "the pandas script wrote nothing"
     assert set(run.pandas_files) == set(run.polars_files), (
         f"different outputs: pandas {sorted(run.pandas_files)}, polars {sorted(run.polars_files)}")
@@ -54,6 +63,11 @@ def compare_case(run: CaseRun) -> None:
         if expected is None:
             assert path.read_bytes() == run.polars_files[name].read_bytes(), f"{name} differs"
             continue
+        tie = (ties or {}).get(name)
+        if tie is not None and expected is not None and actual is not None and tie in expected:
+            gap = (expected[tie] - actual[tie]).abs().max()
+            assert gap <= 0.0100001, f"{name}: {tie} differs by {gap}, more than a rounding tie"
+            expected, actual = expected.drop(columns=[tie]), actual.drop(columns=[tie])
         try:
             assert_same_table(expected, actual)
         except AssertionError as exc:

@@ -56,7 +56,8 @@ def test_a_row_function_after_a_filter_is_put_back_on_its_rows():
     both("""
         import pandas as pd
         def label(row):
-            return f"{row['berth']}-{row['kind']}"
+            for part in (row["berth"], row["kind"]):  # a loop: kept on pandas
+                return f"{part}-{row['kind']}"
         df = pd.read_csv("cargo.csv")
         df = df[df["crates"] > 1]
         df["label"] = df.apply(label, axis=1)
@@ -66,15 +67,19 @@ def test_a_row_function_after_a_filter_is_put_back_on_its_rows():
 
 
 def test_a_row_function_after_a_sort_is_put_back_on_its_rows():
-    both("""
+    text = both("""
         import pandas as pd
         def label(row):
-            return row["berth"] * 2
+            text = ""
+            for part in (row["berth"], row["kind"]):  # a loop: kept on pandas
+                text += part
+            return text
         df = pd.read_csv("cargo.csv")
         df = df.sort_values("tons", kind="stable")
         df["label"] = df.apply(label, axis=1)
         result = df.reset_index(drop=True)
     """, "result")
+    assert "pl.Series(" in text
 
 
 def test_a_series_computed_by_a_pandas_groupby_is_put_back():

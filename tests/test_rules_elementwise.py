@@ -66,7 +66,8 @@ def test_ports(before: str, expected: str) -> None:
 
 
 TODOS = [
-    pytest.param('def double(x):\n    return x * 2\nr = df["v"].map(double)', "series.map", id="named function"),
+    pytest.param('def double(x):\n    for _ in range(2):\n        x = x * 2\n    return x\nr = df["v"].map(double)',
+                 "series.map", id="named function with a loop"),
     pytest.param('r = df["v"].apply(np.sqrt)', "series.apply", id="numpy function"),
     pytest.param('r = df["k"].apply({"a": 1}.get)', "series.apply", id="bound method"),
     pytest.param('r = df["k"].map(lambda x: codes[x] if x in codes else "?")', "series.map",
@@ -217,3 +218,65 @@ def test_cut_bands_sort_in_the_labels_order() -> None:
 def test_cut_todo(call: str) -> None:
     result = convert(FRAME + f'df["band"] = {call}\n')
     assert any(s.key == "pd.cut" for s in result.todos)
+
+
+# -- the script's own functions and row functions ---------------------------------------------------
+
+FUNCTIONS = FRAME + '''
+LIMIT = 2
+def size(x):
+    """A band for one value."""
+    if x >= LIMIT:
+        return "big"
+    elif x > 0:
+        half = x / 2
+        if half > 0.5:
+            return "mid+"
+        return "mid"
+    return "small"
+def label(row):
+    if row["v"] > 1 and row["p"]:
+        return row["k"]
+    if not row["p"]:
+        return "off"
+    return row.t.strip()
+def total(row):
+    return row["v"] * 2 + row["n"]
+def flag(row):
+    if row["n"] > 3:
+        return True
+    return False
+'''
+
+
+@pytest.mark.parametrize("expr", [
+    'df["v"].apply(size)',
+    'df["v"].map(size)',
+    'df["n"].apply(size)',
+    "df.apply(label, axis=1)",
+    'df.apply(total, axis="columns")',
+    "df.apply(flag, axis=1)",
+    'df.apply(lambda r: r["n"] * 10 if r["v"] > 0 else -1, axis=1)',
+    'df.apply(lambda row: row.n + row.v, axis=1)',
+])
+def test_functions_match_pandas(expr: str) -> None:
+    result = differential(FUNCTIONS + f'df["r"] = {expr}\nresult = df\n')
+    assert not result.todos, result.converted_text
+
+
+def test_row_function_on_an_empty_frame() -> None:
+    differential(FUNCTIONS + 'none = df[df["n"] > 100].copy()\nnone["r"] = none.apply(total, axis=1)\n'
+                 'result = none\n')
+
+
+@pytest.mark.parametrize("source", [
+    'def f(row):\n    for c in row:\n        return c\nresult = df.apply(f, axis=1)\n',
+    'def f(row):\n    return row.name\nresult = df.apply(f, axis=1)\n',
+    'def f(row):\n    print(row)\n    return 1\nresult = df.apply(f, axis=1)\n',
+    'def f(row):\n    if row["n"] > 1:\n        x = 1\n    return x\nresult = df.apply(f, axis=1)\n',
+    'result = df.apply(lambda c: c.max())\n',
+    'def f(x):\n    return x\ndef f(x):\n    return 2\nresult = df["n"].apply(f)\n',
+])
+def test_functions_porter_cannot_read_stay_todos(source: str) -> None:
+    result = convert(FRAME + source)
+    assert result.todos

@@ -11,7 +11,7 @@ import shutil
 
 import pytest
 
-from corpus_check import CORPUS, cases
+from corpus_check import CORPUS, KNOWN_TIE_OUTPUTS, cases
 from porter.cli import main
 from porter.verify.api import VerifyOptions, verify
 
@@ -51,6 +51,13 @@ def test_the_users_folder_is_never_written(tmp_path):
 @pytest.mark.parametrize("name", cases())
 def test_every_corpus_script_verifies_as_same(name):
     result = verify(CORPUS / name / f"{name}.py", None, CORPUS / name)
+    if name in KNOWN_TIE_OUTPUTS:
+        # a documented rounding tie after a float sum (see corpus_check.KNOWN_TIES): only
+        # those outputs may differ
+        differing = {o.name for o in result.outputs if o.comparison.status != "same"}
+        assert differing <= KNOWN_TIE_OUTPUTS[name], \
+            json.dumps(result.to_json(), indent=1, default=str)[:3000]
+        return
     assert result.verdict == "same", json.dumps(result.to_json(), indent=1, default=str)[:3000]
 
 

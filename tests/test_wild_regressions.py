@@ -260,7 +260,8 @@ def test_a_series_computed_row_for_row_from_the_frame_is_put_back():
     text = both("""
         import pandas as pd
         def grade(t):
-            return "heavy" if t > 4 else "light"
+            for limit in (4,):  # a loop: kept on pandas
+                return "heavy" if t > limit else "light"
         df = pd.DataFrame({"berth": ["A", "B", "C"], "tons": [5.0, 7.5, 1.0]})
         df = df[df["tons"] > 2]
         df["grade"] = df["tons"].apply(grade)

@@ -9,6 +9,7 @@ condition is null and pl.when takes the otherwise branch: the same result.
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import replace
 
 import libcst as cst
@@ -17,7 +18,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import (
-    PandasCall, RuleContext, Unsupported, derived_column, value_dtype,
+    PandasCall, RuleContext, Unsupported, column_of, derived_column, value_dtype,
 )
 from porter.translate.values import Column, Frame, Opaque, Value
 
@@ -60,6 +61,123 @@ def _function(call: PandasCall) -> Value:
     return call.arg("arg", 0) if call.name == "map" else call.arg("func", 0)
 
 
+# -- the script's own functions as one expression -------------------------------------------------
+
+def body_expression(function: cst.FunctionDef) -> cst.BaseExpression:
+    """A function whose body only names values and returns one, possibly under `if`s, as one
+    conditional expression: `if c: return a` / `x = e` / `return b` -> `a if c else b` with `x`
+    replaced by `(e)`. Python evaluates the same value for every argument; anything else
+    (loops, calls for their effect, a branch that falls through) raises Unsupported."""
+    params = function.params
+    if params.star_arg not in (None, cst.MaybeSentinel.DEFAULT) or params.star_kwarg \
+            or params.kwonly_params or any(p.default is not None for p in params.params[1:]):
+        raise Unsupported("a function with more than one parameter")
+    body = function.body
+    if not isinstance(body, cst.IndentedBlock):
+        body = cst.IndentedBlock(body=[cst.SimpleStatementLine(body=list(body.body))])
+    statements = list(body.body)
+    if statements and _is_docstring(statements[0]):
+        statements = statements[1:]
+    return _as_expression(statements, {})
+
+
+def _is_docstring(stmt: cst.BaseStatement) -> bool:
+    return isinstance(stmt, cst.SimpleStatementLine) and len(stmt.body) == 1 \
+        and isinstance(stmt.body[0], cst.Expr) and isinstance(stmt.body[0].value, cst.SimpleString)
+
+
+class _Substitute(cst.CSTTransformer):
+    def __init__(self, names: dict[str, cst.BaseExpression]) -> None:
+        super().__init__()
+        self.names = names
+
+    def leave_Name(self, original: cst.Name, updated: cst.Name) -> cst.BaseExpression:
+        value = self.names.get(original.value)
+        return value.with_changes(lpar=[cst.LeftParen()], rpar=[cst.RightParen()]) \
+            if value is not None else updated
+
+    def visit_Attribute(self, node: cst.Attribute) -> bool:
+        node.value.visit(self)  # only the object, never the attribute's own name
+        return False
+
+    def leave_Attribute(self, original: cst.Attribute, updated: cst.Attribute) -> cst.BaseExpression:
+        return updated.with_changes(value=original.value.visit(self))
+
+    def visit_Arg(self, node: cst.Arg) -> bool:
+        return True
+
+
+def _substituted(node: cst.BaseExpression, names: dict[str, cst.BaseExpression]) -> cst.BaseExpression:
+    if not names:
+        return node
+    result = node.visit(_Substitute(names))
+    assert isinstance(result, cst.BaseExpression)
+    return result
+
+
+def _as_expression(statements: list[cst.BaseStatement],
+                   names: dict[str, cst.BaseExpression]) -> cst.BaseExpression:
+    if not statements:
+        return cst.Name("None")  # falling off the end returns None
+    first, rest = statements[0], statements[1:]
+    if isinstance(first, cst.SimpleStatementLine):
+        small = list(first.body)
+        if not small:
+            return _as_expression(rest, names)
+        head, tail = small[0], small[1:]
+        remaining = ([first.with_changes(body=tail)] if tail else []) + rest
+        if isinstance(head, cst.Return):
+            return _substituted(head.value, names) if head.value is not None else cst.Name("None")
+        if isinstance(head, cst.Pass):
+            return _as_expression(remaining, names)
+        if isinstance(head, cst.Assign) and len(head.targets) == 1 \
+                and isinstance(head.targets[0].target, cst.Name):
+            name = head.targets[0].target.value
+            return _as_expression(remaining, {**names, name: _substituted(head.value, names)})
+        raise Unsupported("a statement that only a Python call can run")
+    if isinstance(first, cst.If):
+        test = _substituted(first.test, names)
+        body = _as_expression([*first.body.body, *rest], names) if _returns(first.body.body) \
+            else None
+        orelse = first.orelse
+        if isinstance(orelse, cst.If):
+            other = _as_expression([orelse, *rest], names)
+        elif isinstance(orelse, cst.Else):
+            other = _as_expression([*orelse.body.body, *rest], names)
+        else:
+            other = _as_expression(rest, names)
+        if body is None:
+            raise Unsupported("an `if` whose branch goes on to the next statement")
+        return cst.IfExp(test=test.with_changes(lpar=[cst.LeftParen()], rpar=[cst.RightParen()]),
+                         body=body, orelse=other)
+    raise Unsupported("a loop or a block that only a Python call can run")
+
+
+def _returns(statements: Sequence[cst.BaseStatement]) -> bool:
+    """Whether a block always ends in `return`."""
+    if not statements:
+        return False
+    last = statements[-1]
+    if isinstance(last, cst.SimpleStatementLine):
+        return any(isinstance(s, cst.Return) for s in last.body)
+    if isinstance(last, cst.If):
+        orelse = last.orelse
+        if orelse is None:
+            return False
+        other = [orelse] if isinstance(orelse, cst.If) else list(orelse.body.body)
+        return _returns(list(last.body.body)) and _returns(other)
+    return False
+
+
+def function_value(call: PandasCall, function: Value, ctx: RuleContext) -> cst.FunctionDef | None:
+    """The script's own function a call passes by name (`s.apply(grade)`), if porter has it."""
+    if isinstance(function, Opaque) and isinstance(function.node, cst.Name) \
+            and ctx.function_def is not None:
+        found = ctx.function_def(function.node.value)
+        return found if isinstance(found, cst.FunctionDef) else None
+    return None
+
+
 @rule("series.map", "series.apply")
 def map_(call: PandasCall, ctx: RuleContext) -> Value:
     """s.map(dict) -> .replace_strict(dict, default=None); s.map(lambda x: ...) / s.apply(lambda
@@ -87,7 +205,19 @@ def map_(call: PandasCall, ctx: RuleContext) -> Value:
             code = emit.when(column.code.method("is_not_null"), result.code)
             return replace(result, code=code)
         return result
-    raise Unsupported("a named function: write its body as a lambda or as column expressions")
+    named = function_value(call, function, ctx)
+    if named is not None:
+        param = named.params.params[0].name.value if named.params.params else None
+        if param is None:
+            raise Unsupported("a function without a parameter")
+        lambda_node = cst.Lambda(params=cst.Parameters(params=[cst.Param(cst.Name(param))]),
+                                 body=body_expression(named))
+        result = element_lambda(lambda_node, column, ctx)
+        if call.const("na_action", None, None) == "ignore":
+            return replace(result, code=emit.when(column.code.method("is_not_null"), result.code))
+        return result
+    raise Unsupported("a named function porter cannot read: write its body as a lambda or as "
+                      "column expressions")
 
 
 # -- what a lambda body may contain --------------------------------------------------------
@@ -217,7 +347,15 @@ def element_ifexp(call: PandasCall, ctx: RuleContext) -> Value:
     cond = call.receiver
     assert isinstance(cond, Column)
     then, otherwise = call.args
-    code = emit.when(_truth(cond), _branch(then, cond, ctx), _branch(otherwise, cond, ctx))
+    code = emit.when(_truth(cond), _branch(then, cond, ctx))
+    other = _branch(otherwise, cond, ctx)
+    if other.base is not None and other.base.startswith("pl.when(") and other.steps \
+            and other.steps[-1].startswith(".otherwise("):
+        # `a if c else (b if d else e)`: one chain, pl.when(c).then(a).when(d).then(b)...
+        code = Code(code.text + other.text[len("pl"):], emit.ATOM, code.base,
+                    code.steps + (other.base[len("pl"):], *other.steps))
+    else:
+        code = code.method("otherwise", other)
     kinds = {value_dtype(v) for v in (then, otherwise)}
     return derived_column(cond, code, dtype=kinds.pop() if len(kinds) == 1 else None,
                           others=[v for v in (then, otherwise) if isinstance(v, Column)])
@@ -313,3 +451,116 @@ def cut(call: PandasCall, ctx: RuleContext) -> Value:
     assert code is not None
     code = code.method("cast", emit.pl("Enum", list(labels)))
     return derived_column(column, code, dtype="category")
+
+
+@rule("frame.apply")
+def frame_apply(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.apply(f, axis=1) -> one expression over the row's columns.
+
+    Handles: a lambda or the script's own function, whose `if`s and `return`s become a pl.when
+    chain and whose local names are inlined; row["c"] and row.c read column c; a condition on a
+    missing value takes the else branch (NaN comparisons are False in Python, null conditions
+    fall through pl.when); in a row of numbers only, pandas passes every number as a float.
+    Caveats: axis=0 (a function per column), loops, other uses of the row (row.name, row[0])
+    and calls porter does not know are TODOs. Without the column types, an int column is taken
+    to reach the function as an int (0.95).
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "func", "axis", positional=2)
+    axis = call.const("axis", 1, 0, kinds=(int, str))
+    if axis not in (1, "columns"):
+        raise Unsupported("a function per column (axis=0)")
+    function = call.arg("func", 0)
+    if isinstance(function, Opaque) and isinstance(function.node, cst.Lambda):
+        params = function.node.params.params
+        if len(params) != 1:
+            raise Unsupported("a lambda with more than one parameter")
+        param, body = params[0].name.value, function.node.body
+    else:
+        named = function_value(call, function, ctx)
+        if named is None or not named.params.params:
+            raise Unsupported("a function porter cannot read")
+        param, body = named.params.params[0].name.value, body_expression(named)
+    fields: dict[str, str] = {}
+    body = body.visit(_RowFields(param, fields))  # type: ignore[assignment]
+    if _uses_name(body, param):
+        raise Unsupported("the row is used other than by its column names (row.name, row[0])")
+    absent = [c for c in fields.values() if frame.columns is not None and c not in frame.columns]
+    if absent:
+        raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
+    kinds = {t for _, t in frame.dtypes}
+    all_numbers = frame.columns is not None and len(frame.dtypes) == len(frame.columns) \
+        and kinds <= {"int", "float", "bool"}
+    if frame.columns is None or len(frame.dtypes) != len(frame.columns):
+        ctx.lower("pandas passes a row of numbers only as floats; the column types are not all "
+                  "known, so int columns are taken to reach the function as ints", 0.95)
+    bindings: dict[str, Value] = {}
+    for name, column in fields.items():
+        value = replace(column_of(frame, column), element=True)
+        if all_numbers and "float" in kinds and value.dtype in ("int", "bool"):
+            value = replace(value, dtype="float")  # the row is one float Series
+        bindings[name] = value
+    result = _checked(ctx.evaluate(body, bindings), ctx)
+    base = Column(emit.pl("lit", None), frame=frame, name=None)
+    if isinstance(result, Opaque) and result.is_const:
+        return derived_column(base, emit.pl("lit", result.const), name=None)  # the same for every row
+    if not isinstance(result, Column):
+        raise Unsupported("the function has no expression form porter knows")
+    code = result.code.method("fill_null", False) if result.null_is_false else result.code
+    return replace(result, code=code, element=False, name=None, null_is_false=False, sites=())
+
+
+class _RowFields(cst.CSTTransformer):
+    """row["c"] / row.c -> a name standing for column c of the row."""
+
+    def __init__(self, param: str, fields: dict[str, str]) -> None:
+        super().__init__()
+        self.param = param
+        self.fields = fields
+
+    def _field(self, column: str) -> cst.Name:
+        for name, known in self.fields.items():
+            if known == column:
+                return cst.Name(name)
+        name = f"_row_field_{len(self.fields)}"
+        self.fields[name] = column
+        return cst.Name(name)
+
+    def leave_Subscript(self, original: cst.Subscript, updated: cst.Subscript) -> cst.BaseExpression:
+        if isinstance(original.value, cst.Name) and original.value.value == self.param \
+                and len(original.slice) == 1 and isinstance(original.slice[0].slice, cst.Index) \
+                and isinstance(original.slice[0].slice.value, cst.SimpleString):
+            column = original.slice[0].slice.value.evaluated_value
+            if isinstance(column, str):
+                return self._field(column)
+        return updated
+
+    def leave_Attribute(self, original: cst.Attribute, updated: cst.Attribute) -> cst.BaseExpression:
+        if isinstance(original.value, cst.Name) and original.value.value == self.param \
+                and original.attr.value not in _SERIES_ATTRIBUTES:
+            return self._field(original.attr.value)
+        return updated
+
+
+# attributes of a pandas Series that are not columns when read from a row
+_SERIES_ATTRIBUTES = frozenset({"name", "index", "values", "dtype", "shape", "size", "empty",
+                                "get", "loc", "iloc", "at", "iat", "sum", "mean", "max", "min",
+                                "isna", "notna", "isnull", "notnull", "any", "all", "count",
+                                "to_dict", "to_list", "tolist", "items", "keys", "astype"})
+
+
+def _uses_name(node: cst.CSTNode, name: str) -> bool:
+    found = []
+
+    class Find(cst.CSTVisitor):
+        def visit_Name(self, n: cst.Name) -> None:
+            if n.value == name:
+                found.append(n)
+
+        def visit_Attribute(self, n: cst.Attribute) -> bool:
+            n.value.visit(self)
+            return False
+
+    node.visit(Find())
+    return bool(found)

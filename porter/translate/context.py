@@ -112,6 +112,7 @@ class RuleContext:
     datetimes_possible: bool = True  # the script makes or reads datetimes somewhere
     inside_from_pandas: bool = False  # the call is the argument of pl.from_pandas (porter's output)
     shown: bool = False  # the value is only printed or displayed (print(...), a bare cell value)
+    function_def: Any = None  # name -> the script's own FunctionDef (defined once), or None
 
     def needs_review(self, reason: str) -> None:
         """Keep the rewrite but report the site as a TODO (for example a hand-back from pandas)."""

@@ -16,7 +16,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.model import SiteDraft
 from porter.translate import handover, imports as import_edits
-from porter.translate.functions import discover_functions, learn_functions
+from porter.translate.functions import discover_functions, function_definitions, learn_functions
 from porter.translate.writes import batch_writes
 from porter.translate.context import PandasCall, grouping_code
 from porter.translate.evaluate import Evaluator, Services
@@ -83,6 +83,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     services.shown = shown
     functions = discover_functions(module)
     services.functions = {f.name: f for f in functions}
+    services.function_defs = function_definitions(module)
 
     # Which parameters of the script's own functions take frames is learnt from the calls:
     # run the pass until that stops changing (each round can learn one more link of a chain

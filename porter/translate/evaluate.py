@@ -63,6 +63,8 @@ class Services:
     call_sites: dict[str, list[tuple[Value, ...]]] = field(default_factory=dict)
     inside_from_pandas: Callable[[cst.CSTNode], bool] = lambda node: False
     shown: Callable[[cst.CSTNode], bool] = lambda node: False  # only printed or displayed
+    # the module's own plain functions, defined once, by name (their bodies can become expressions)
+    function_defs: dict[str, cst.FunctionDef] = field(default_factory=dict)
     schema_lookup: Callable[[str, str, dict[str, Any]], dict[str, str] | None] | None = None
     datetimes_possible: bool = True
     # statements that compute each named frame's data, by the assignment that named it
@@ -449,7 +451,8 @@ class Evaluator:
                           evaluate=self.evaluate_with,
                           datetimes_possible=self.services.datetimes_possible,
                           inside_from_pandas=self.services.inside_from_pandas(node),
-                          shown=self.services.shown(node))
+                          shown=self.services.shown(node),
+                          function_def=self.services.function_defs.get)
         try:
             result = fn(call, ctx)
         except Unsupported as exc:

@@ -34,6 +34,21 @@ def discover_functions(module: cst.Module) -> list[LocalFunction]:
     return found
 
 
+def function_definitions(module: cst.Module) -> dict[str, cst.FunctionDef]:
+    """The module's plain functions defined once (no decorators), by name."""
+    found: dict[str, cst.FunctionDef] = {}
+    seen: set[str] = set()
+    for stmt in module.body:
+        if isinstance(stmt, (cst.FunctionDef, cst.ClassDef)):
+            name = stmt.name.value
+            if name in seen:
+                found.pop(name, None)
+            elif isinstance(stmt, cst.FunctionDef) and not stmt.decorators:
+                found[name] = stmt
+            seen.add(name)
+    return found
+
+
 def _passed_as_values(module: cst.Module, names: set[str]) -> set[str]:
     """Functions named other than in a call of their own (`df.pipe(f)`, `s.apply(f)`): other
     code calls them, with arguments porter does not see, so nothing is learnt about them."""

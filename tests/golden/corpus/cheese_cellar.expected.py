@@ -44,11 +44,13 @@ wheels = wheels.with_columns(
     loss_pct=(((pl.col("start_kg") - pl.col("now_kg")) / pl.col("start_kg")).fill_nan(None) * 100).round(2),
 )
 wheels = wheels.with_columns(loss_pct=pl.col("loss_pct").clip(0, None))
-wheels = wheels.with_columns(made_month=pl.col("made_on").dt.month()).collect().lazy()
-# TODO(porter): frame.apply: write the function as column expressions (pl.when / arithmetic); map_elements is a last resort
-# TODO(porter): frame.setitem: a Series computed by pandas, row for row from this frame, is put back by position; port the computation to an expression
+wheels = wheels.with_columns(made_month=pl.col("made_on").dt.month())
 wheels = wheels.with_columns(
-    status=pl.Series(wheels.collect().to_pandas().apply(sale_status, axis=1), nan_to_null=True),
+    status=pl.when((pl.col("loss_pct") >= 8) & (pl.col("rind_score") >= 4))
+    .then(pl.lit("ready"))
+    .when(pl.col("loss_pct") >= 8)
+    .then(pl.lit("check rind"))
+    .otherwise(pl.lit("keep ageing")),
 )
 wheels = (
     wheels
