@@ -308,3 +308,34 @@ def test_read_then_write_round_trip(data: Path, monkeypatch: pytest.MonkeyPatch)
     expected = pd.read_csv(expected_dir / "out.csv", dtype={"zip": str})
     actual = pd.read_csv(actual_dir / "out.csv", dtype={"zip": str})
     assert_same_table(expected, actual)
+
+
+def test_read_csv_with_data_is_told_the_schema(data: Path) -> None:
+    # with --data the scan gets the types porter read, instead of inferring them over the
+    # whole file a second time; the values are pandas' all the same
+    result = differential("""
+        import pandas as pd
+        result = pd.read_csv("produce.csv")
+        """, data_dir=str(data))
+    assert "schema={" in result.converted_text
+    assert "infer_schema_length" not in result.converted_text
+
+
+def test_files_of_one_layout_read_by_one_function_share_the_schema(data: Path) -> None:
+    (data / "week1.csv").write_text("crate,kg\nA,1.5\nB,\n", encoding="utf-8")
+    (data / "week2.csv").write_text("crate,kg\nC,2\nÉ,3.25\n", encoding="utf-8")
+    (data / "week3.csv").write_text("crate,kg,note\nD,1,x\n", encoding="utf-8")
+    result = differential("""
+        import pandas as pd
+        def load(path):
+            return pd.read_csv(path)
+        result = pd.concat([load("week1.csv"), load("week2.csv")])
+        """, data_dir=str(data))
+    assert "schema={" in result.converted_text
+    other = convert("""
+        import pandas as pd
+        def load(path):
+            return pd.read_csv(path)
+        result = pd.concat([load("week1.csv"), load("week3.csv")])
+        """, data_dir=str(data))
+    assert "infer_schema_length=None" in other.converted_text  # two layouts: inferred as before

@@ -195,7 +195,12 @@ def layout_chain(code: Code, indent: str, prefix: str, suffix: str = "") -> str:
     if code.base is None or not code.steps or (len(code.steps) == 1 and "(" not in code.base):
         return _split_call(code.text, prefix, suffix) or one_line
     # continuation lines are relative: libcst adds the enclosing block's indentation
-    lines = [f"{prefix}(", "    " + code.base]
+    base = [code.base]
+    if len(indent) + 4 + len(code.base) > LINE_LENGTH:
+        split = _split_call(code.base, "", "")  # a long first call: one argument per line
+        if split is not None:
+            base = split.splitlines()
+    lines = [f"{prefix}(", *("    " + line for line in base)]
     for step in code.steps:
         lines += _split_step(step, LINE_LENGTH - len(indent) - 4)
     lines.append(f"){suffix}")

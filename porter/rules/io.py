@@ -38,6 +38,13 @@ def polars_dtype(value: Value) -> tuple[str, str]:
     return DTYPES[spelled]
 
 
+def _paths(source: Value) -> object:
+    """The file a read names: its text, or the texts a function's calls pass for it."""
+    if isinstance(source, Opaque):
+        return source.const if source.is_const else (source.choices or None)
+    return None
+
+
 @rule("pd.read_csv")
 def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     """pd.read_csv -> pl.scan_csv.
@@ -111,7 +118,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower("nrows: pandas infers column types from the rows it reads, Polars from the "
                   "whole file (a column whose later rows hold text is read as text)", 0.9)
 
-    schema = ctx.input_schema("csv", source.const if isinstance(source, Opaque) else None, options)
+    schema = ctx.input_schema("csv", _paths(source), options)
     exact = getattr(schema, "polars", None)
     if exact and "" not in exact:
         # --data gave the file: the scan is told the types porter read (inferring them over
@@ -194,7 +201,7 @@ def read_parquet(call: PandasCall, ctx: RuleContext) -> Value:
     """
     ctx.reject_unknown(call, "path", "columns", "engine", positional=1)
     source = call.arg("path", 0)
-    schema = ctx.input_schema("parquet", source.const if isinstance(source, Opaque) else None, {})
+    schema = ctx.input_schema("parquet", _paths(source), {})
     frame = Frame(emit.pl("scan_parquet", source.code),
                   columns=tuple(schema) if schema else None,
                   dtypes=tuple((schema or {}).items()))

@@ -119,8 +119,17 @@ class RuleContext:
         self.todo_note = reason
 
     def input_schema(self, reader: str, path: object, options: dict[str, Any]) -> dict[str, str] | None:
-        """Column types of an input file, when the user gave --data (no data is loaded)."""
-        if self.schema_lookup is None or not isinstance(path, str):
+        """Column types of an input file, when the user gave --data (no data is loaded). `path`
+        may be several files (a function's calls pass each): their schema when they all agree."""
+        if self.schema_lookup is None:
+            return None
+        if isinstance(path, tuple) and path and all(isinstance(p, str) for p in path):
+            found = [self.schema_lookup(reader, p, options) for p in path]
+            first = found[0]
+            same = all(f is not None and list(f.items()) == list(first.items())
+                       and getattr(f, "polars", None) == getattr(first, "polars", None) for f in found)
+            return first if same else None
+        if not isinstance(path, str):
             return None
         return self.schema_lookup(reader, path, options)
 

@@ -207,6 +207,9 @@ class _Walker:
                 local[name] = Frame(emit.atom(name), labels_intact=False, columns=columns, dtypes=dtypes)
             elif function is not None and name in dict(function.param_consts):
                 local[name] = Opaque(emit.atom(name), const=dict(function.param_consts)[name])
+            elif function is not None and name in dict(function.param_choices):
+                local[name] = Opaque(emit.atom(name), choices=dict(function.param_choices)[name],
+                                     pytype="str")
             else:
                 local.pop(name, None)
         outer = self.function
@@ -912,7 +915,11 @@ def _marked_key(comment: str) -> str | None:
 
 
 def _is_collected(code: Code) -> bool:
-    return code.text.endswith(".collect().lazy()")
+    """Already data in memory: collected, or a frame written out in the script."""
+    if code.text.endswith(".collect().lazy()"):
+        return True
+    base = code.base if code.base is not None else code.text
+    return base.startswith("pl.LazyFrame(") and not code.steps
 
 
 def _index_of(target: cst.Subscript) -> cst.BaseExpression:

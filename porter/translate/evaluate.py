@@ -48,6 +48,8 @@ class LocalFunction:
     param_schemas: tuple[tuple[str, tuple[tuple[str, ...] | None, tuple[tuple[str, str], ...]]], ...] = ()
     # literal values every call passes (a file name), so rules can look inputs up
     param_consts: tuple[tuple[str, Any], ...] = ()
+    # texts the calls pass for a parameter when they differ (two input files of one layout)
+    param_choices: tuple[tuple[str, tuple[str, ...]], ...] = ()
 
 
 @dataclass

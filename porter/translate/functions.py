@@ -68,6 +68,7 @@ def learn_functions(services: Services, returns: dict[str, list[Value]]) -> dict
         frame_params = set()
         schemas = []
         consts: list[tuple[str, Any]] = []
+        choices: list[tuple[str, tuple[str, ...]]] = []
         for i, param in enumerate(function.params):
             kinds = [c[i] if i < len(c) else None for c in calls]
             if kinds and all(isinstance(k, Frame) for k in kinds):
@@ -78,6 +79,10 @@ def learn_functions(services: Services, returns: dict[str, list[Value]]) -> dict
             elif kinds and all(isinstance(k, Opaque) and k.is_const and isinstance(k.const, str)
                                for k in kinds) and len({k.const for k in kinds}) == 1:  # type: ignore[union-attr]
                 consts.append((param, kinds[0].const))  # type: ignore[union-attr]
+            elif kinds and all(isinstance(k, Opaque) and k.is_const and isinstance(k.const, str)
+                               for k in kinds):
+                texts = tuple(dict.fromkeys(k.const for k in kinds))  # type: ignore[union-attr]
+                choices.append((param, texts))
         returned = returns.get(name, [])
         template: Value | None = None
         if returned and all(isinstance(r, Frame) for r in returned):
@@ -88,7 +93,8 @@ def learn_functions(services: Services, returns: dict[str, list[Value]]) -> dict
         elif returned and all(isinstance(r, (Column, Scalar)) for r in returned):
             template = returned[0]
         updated[name] = replace(function, frame_params=frozenset(frame_params), returns=template,
-                                param_schemas=tuple(schemas), param_consts=tuple(consts))
+                                param_schemas=tuple(schemas), param_consts=tuple(consts),
+                                param_choices=tuple(choices))
     # keep templates stable between passes so the fixpoint check can succeed
     for name, function in updated.items():
         old = services.functions[name]

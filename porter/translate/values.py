@@ -154,6 +154,8 @@ class Opaque(Value):
     const: Any = field(default=MISSING, kw_only=True)
     node: Any = field(default=None, kw_only=True, compare=False)  # the libcst node, for lambdas
     pytype: str | None = field(default=None, kw_only=True)  # "str" for a loop over names
+    # the texts a function's parameter receives from its calls, when each call passes one
+    choices: tuple[str, ...] = field(default=(), kw_only=True)
 
     @property
     def is_const(self) -> bool:

@@ -7,7 +7,12 @@ PANDAS_NA_VALUES = [
 ]
 
 orders = (
-    pl.scan_csv("orders.csv", null_values=PANDAS_NA_VALUES, schema_overrides={"shop": pl.String}, infer_schema_length=None)
+    pl.scan_csv(
+        "orders.csv",
+        null_values=PANDAS_NA_VALUES,
+        schema_overrides={"shop": pl.String},
+        infer_schema_length=None,
+    )
     .with_columns(total=pl.col("units") * pl.col("price"))
     .filter(pl.col("units") > 0)
 )

@@ -22,7 +22,11 @@ PANDAS_CSV_DATETIMES = (
 )
 
 sales = (
-    pl.scan_csv("data/sales.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
+    pl.scan_csv(
+        "data/sales.csv",
+        null_values=PANDAS_NA_VALUES,
+        infer_schema_length=None,
+    )
     .with_columns(pl.col("sale_date").str.to_datetime(time_unit="us"))
     .collect()
     .lazy()

@@ -22,10 +22,11 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
-APIARIES = (
-    pl.LazyFrame({"apiary": ["combe aux abeilles", "pré haut", "rucher du moulin"], "altitude_m": [640, 1120, 415]})
-    .collect()
-    .lazy()
+APIARIES = pl.LazyFrame(
+    {
+        "apiary": ["combe aux abeilles", "pré haut", "rucher du moulin"],
+        "altitude_m": [640, 1120, 415],
+    },
 )
 MAX_MOISTURE = 18.6
 

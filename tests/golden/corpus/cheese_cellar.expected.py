@@ -23,7 +23,11 @@ PANDAS_CSV_DATETIMES = (
 )
 
 wheels = (
-    pl.scan_csv("data/wheels.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
+    pl.scan_csv(
+        "data/wheels.csv",
+        null_values=PANDAS_NA_VALUES,
+        infer_schema_length=None,
+    )
     .with_columns(pl.col("made_on").str.to_datetime(time_unit="us"))
 )
 wheels = wheels.drop_nulls("now_kg").collect().lazy()

@@ -12,10 +12,11 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
-DYE_COSTS = (
-    pl.LazyFrame({"dye": ["indigo", "madder", "weld", "walnut", "cochineal"], "cost_per_liter": [0.42, 0.35, 0.18, 0.12, 0.95]})
-    .collect()
-    .lazy()
+DYE_COSTS = pl.LazyFrame(
+    {
+        "dye": ["indigo", "madder", "weld", "walnut", "cochineal"],
+        "cost_per_liter": [0.42, 0.35, 0.18, 0.12, 0.95],
+    },
 )
 
 

@@ -89,12 +89,18 @@ def boat_totals(landings):
 
 
 landings = (
-    clean_landings(pl.scan_csv("data/landings.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None))
+    clean_landings(
+        pl.scan_csv("data/landings.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None),
+    )
     .collect()
     .lazy()
 )
 quota = (
-    pl.scan_csv("data/quota.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
+    pl.scan_csv(
+        "data/quota.csv",
+        null_values=PANDAS_NA_VALUES,
+        infer_schema_length=None,
+    )
     .collect()
     .lazy()
 )

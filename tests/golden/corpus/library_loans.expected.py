@@ -48,7 +48,11 @@ def flag_loans(loans):
 def main():
     loans = flag_loans(load_loans("data/loans.csv")).collect().lazy()
     members = (
-        pl.scan_csv("data/members.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
+        pl.scan_csv(
+            "data/members.csv",
+            null_values=PANDAS_NA_VALUES,
+            infer_schema_length=None,
+        )
         .with_columns(pl.col("joined_on").str.to_datetime(time_unit="us"))
         .collect()
         .lazy()

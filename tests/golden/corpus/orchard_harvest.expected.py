@@ -26,7 +26,11 @@ GRADE_PRICES = pl.LazyFrame(
 )
 
 weighings = (
-    pl.scan_csv("data/weighings.csv", null_values=PANDAS_NA_VALUES + ["-"], infer_schema_length=None)
+    pl.scan_csv(
+        "data/weighings.csv",
+        null_values=PANDAS_NA_VALUES + ["-"],
+        infer_schema_length=None,
+    )
     .with_columns(pl.col("pick_date").str.to_datetime(time_unit="us"))
     .collect()
     .lazy()

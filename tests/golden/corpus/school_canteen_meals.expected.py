@@ -16,7 +16,11 @@ PANDAS_NA_VALUES = [
 MEAL_PRICE = {"standard": 3.40, "reduced": 1.10}
 
 meals = (
-    pl.scan_csv("data/meals.csv", null_values=PANDAS_NA_VALUES + ["none"], infer_schema_length=None)
+    pl.scan_csv(
+        "data/meals.csv",
+        null_values=PANDAS_NA_VALUES + ["none"],
+        infer_schema_length=None,
+    )
     .collect()
     .lazy()
 )
@@ -87,7 +91,9 @@ for _, row in risky.collect().to_pandas().iterrows():
     pupils.append(row["pupil_id"])
     notes.append(f"{row['class_group']}: {row['menu']} plate, check {row['allergen']}")
 alerts = (
-    pl.from_pandas(pd.DataFrame({"served_on": dates, "pupil_id": pupils, "note": notes}))
+    pl.from_pandas(
+        pd.DataFrame({"served_on": dates, "pupil_id": pupils, "note": notes}),
+    )
     .lazy()
     .collect()
     .lazy()

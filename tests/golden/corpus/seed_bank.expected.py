@@ -17,7 +17,12 @@ TEST_COLUMNS = ["test_id", "accession", "species", "sown", "germinated", "test_d
 
 def load_tests(path):
     tests = (
-        pl.scan_csv(path, null_values=PANDAS_NA_VALUES, schema_overrides={"accession": pl.String}, infer_schema_length=None)
+        pl.scan_csv(
+            path,
+            null_values=PANDAS_NA_VALUES,
+            schema_overrides={"accession": pl.String},
+            infer_schema_length=None,
+        )
         .select(pl.col("^(test_id|accession|species|sown|germinated|test_date)$"))
     )
     return tests.drop_nulls("germinated")
@@ -65,7 +70,12 @@ def species_summary(tests):
 
 tests = add_rates(load_tests("data/germination_tests.csv")).collect().lazy()
 registry = (
-    pl.scan_csv("data/accessions.csv", null_values=PANDAS_NA_VALUES, schema_overrides={"accession_id": pl.String}, infer_schema_length=None)
+    pl.scan_csv(
+        "data/accessions.csv",
+        null_values=PANDAS_NA_VALUES,
+        schema_overrides={"accession_id": pl.String},
+        infer_schema_length=None,
+    )
     .collect()
     .lazy()
 )

@@ -18,7 +18,14 @@ STANDING_CHARGE = 8.0
 col = "usage_m3"
 
 df = (
-    pl.scan_csv("data/readings.csv", separator=";", null_values=PANDAS_NA_VALUES + ["missing"], infer_schema_length=None, skip_rows=3, n_rows=150)
+    pl.scan_csv(
+        "data/readings.csv",
+        separator=";",
+        null_values=PANDAS_NA_VALUES + ["missing"],
+        infer_schema_length=None,
+        skip_rows=3,
+        n_rows=150,
+    )
     .collect()
     .lazy()
 )
