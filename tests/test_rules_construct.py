@@ -32,6 +32,10 @@ PORTS = [
                  id="a dict built at run time"),
     pytest.param('result = pd.DataFrame({"a": []})', id="an empty column is float"),
     pytest.param('result = pd.DataFrame({"flag": [True, False]})', id="booleans"),
+    pytest.param('result = pd.DataFrame([])', id="an empty list"),
+    pytest.param('result = pd.DataFrame([], columns=["a", "b"])', id="no rows, named columns"),
+    pytest.param('result = pd.DataFrame([("é", 1.5), ("ü", None)], columns=["k", "v"])',
+                 id="tuples with unicode and a missing value"),
     pytest.param('result = pd.Series([1, None, 3], name="kg").to_frame()', id="Series with a name"),
     pytest.param('s = pd.Series(["x", "y", None])\nresult = s.str.upper().to_frame()', id="Series without a name"),
     pytest.param('result = pd.Series([1.5, 2.5, np.nan]).sum()', id="Series reduction"),
@@ -72,6 +76,10 @@ TODOS = [
                  id="columns= names a missing key"),
     pytest.param('result = pd.Series([1, 2], index=["a", "b"])', "index=", id="Series with index"),
     pytest.param('s = pd.Series(range(3))', "run time", id="Series of computed values"),
+    pytest.param('result = pd.DataFrame({"a": [1, 2]}, dtype=float)', "dtype=", id="dtype"),
+    pytest.param('result = pd.DataFrame(columns=["a", "b"])', "empty DataFrame", id="columns only"),
+    pytest.param('result = pd.DataFrame({"a": pd.Series([1, 2]), "b": pd.Series(["x", None])})',
+                 "another pandas object", id="dict of Series"),
 ]
 
 
@@ -119,3 +127,11 @@ def test_a_literal_changed_in_place_is_not_a_constant():
     source = ("import pandas as pd\ncols = ['a']\ncols.append('b')\n"
               "result = pd.DataFrame([[1, 2]], columns=cols)\n")
     differential(source)
+
+
+def test_a_dict_of_series_kept_on_pandas_gives_pandas_frame():
+    # the Series are ported, then handed over (unnamed Series without a name) to the pandas
+    # constructor under the TODO: the frame pandas builds is the same
+    differential("import pandas as pd\ns1 = pd.Series([1, 2, 3], name='kg')\n"
+                 "s2 = pd.Series(['x', 'ü', None])\n"
+                 "result = pd.DataFrame({'a': s1, 'b': s2, 'c': s2.str.upper()})\n")
