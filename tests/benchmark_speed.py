@@ -39,32 +39,39 @@ SECTION = "## Converted scripts against pandas"
 
 
 def scale(data: Path, out: Path, rows: int, seed: int = 7) -> dict[str, int]:
-    """Copy `data` to `out`, drawing the event tables up to `rows` rows. Returns rows per file."""
-    shutil.copytree(data, out)  # the parent folder is made too
-    tables = {p: _read(p) for p in sorted(out.rglob("*")) if p.suffix in (".csv", ".parquet")}
-    largest = max((len(t) for t in tables.values()), default=0)
+    """Copy `data` to `out` (making its parent folder), drawing the event tables up to `rows`
+    rows. Returns rows per file.
+
+    CSV files are scaled line by line, so what comes before the data (comment lines, the
+    header) and the separator stay exactly as the script expects them."""
+    shutil.copytree(data, out)
+    tables = {p: _lines(p) if p.suffix == ".csv" else pd.read_parquet(p)
+              for p in sorted(out.rglob("*")) if p.suffix in (".csv", ".parquet")}
+    lengths = {p: len(t[1]) if isinstance(t, tuple) else len(t) for p, t in tables.items()}
+    largest = max(lengths.values(), default=0)
     sizes = {}
     rng = np.random.default_rng(seed)
     for path, table in tables.items():
-        if len(table) and len(table) >= largest / 2:  # an event table, not a lookup
-            table = table.iloc[rng.integers(0, len(table), rows)].reset_index(drop=True)
-            _write(table, path)
-        sizes[str(path.relative_to(out))] = len(table)
+        if lengths[path] and lengths[path] >= largest / 2:  # an event table, not a lookup
+            picks = rng.integers(0, lengths[path], rows)
+            if isinstance(table, tuple):
+                head, body = table
+                path.write_text("\n".join([*head, *(body[i] for i in picks)]) + "\n", encoding="utf-8")
+            else:
+                table.iloc[picks].reset_index(drop=True).to_parquet(path, index=False)
+            lengths[path] = rows
+        sizes[str(path.relative_to(out))] = lengths[path]
     return sizes
 
 
-def _read(path: Path) -> pd.DataFrame:
-    # read as text so the values are written back exactly as they were (no type round trip)
-    if path.suffix == ".csv":
-        return pd.read_csv(path, dtype=str, keep_default_na=False)
-    return pd.read_parquet(path)
-
-
-def _write(table: pd.DataFrame, path: Path) -> None:
-    if path.suffix == ".csv":
-        table.to_csv(path, index=False)
-    else:
-        table.to_parquet(path, index=False)
+def _lines(path: Path) -> tuple[list[str], list[str]]:
+    """(the lines before the data, the data lines): the header is the first line with as many
+    separators as the typical data line."""
+    lines = [line for line in path.read_text(encoding="utf-8").splitlines() if line.strip()]
+    sep = ";" if sum(line.count(";") for line in lines) > sum(line.count(",") for line in lines) else ","
+    typical = statistics.mode(line.count(sep) for line in lines[-50:]) if lines else 0
+    header = next((i for i, line in enumerate(lines) if line.count(sep) == typical), 0)
+    return lines[:header + 1], lines[header + 1:]
 
 
 def count_calls(text: str) -> dict[str, int]:
