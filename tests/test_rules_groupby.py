@@ -249,3 +249,38 @@ def test_dict_of_lists_lowers_confidence() -> None:
     result = convert(FRAME + 'r = df.groupby("shop").agg({"qty": ["sum", "max"], "n": "min"})\n')
     site = next(s for s in result.sites if s.key == "groupby.agg")
     assert site.confidence <= 0.9 and "MultiIndex" in site.message
+
+
+# -- pivot_table -------------------------------------------------------------------------------
+
+PIVOT = FRAME.replace('"n": [1, 2, 3, 4, 5, 6, 7, 8, 8],',
+                      '"n": [1, 2, 3, 4, 5, 6, 7, 8, 8],\n    "month": [6, 10, 7, 6, 9, 10, 7, 6, None],')
+
+
+@pytest.mark.parametrize("call", [
+    'df.pivot_table(index="shop", columns="month", values="qty")',
+    'df.pivot_table(index="shop", columns="month", values="qty", aggfunc="median")',
+    'df.pivot_table(index="shop", columns="month", values="n", aggfunc="sum", fill_value=0)',
+    'df.pivot_table(index="shop", columns="t", values="n", aggfunc="count", fill_value=0)',
+    'df.pivot_table(index="shop", columns="month", values="qty", aggfunc="max", fill_value=-1)',
+    'df.pivot_table(index=["shop", "t"], columns="month", values="n", aggfunc="min", fill_value=0)',
+    'df.pivot_table(values="qty", index="t", columns="shop", aggfunc="mean", fill_value=0.5)',
+    'df[df["n"] > 100].pivot_table(index="shop", columns="month", values="n", aggfunc="sum", fill_value=0)',
+])
+def test_pivot_table_matches_pandas(call: str) -> None:
+    # a missing key drops its row; a group whose mean is missing is dropped; the months come
+    # in their numeric order (10 after 9), the rows in key order
+    result = differential(PIVOT + f"result = {call}.reset_index()\n")
+    assert not result.todos, result.converted_text
+
+
+@pytest.mark.parametrize("call", [
+    'df.pivot_table(index="shop", columns="month", values="n", aggfunc="sum")',
+    'df.pivot_table(index="shop", columns="month", values="qty", margins=True)',
+    'df.pivot_table(index="shop", columns="month")',
+    'df.pivot_table(index="shop", columns=["month", "t"], values="n", fill_value=0)',
+    'df.pivot_table(index="shop", columns="month", values="n", aggfunc=["sum", "max"], fill_value=0)',
+])
+def test_pivot_table_todo(call: str) -> None:
+    result = convert(PIVOT + f"result = {call}\n")
+    assert any(s.key == "frame.pivot_table" for s in result.todos)

@@ -28,9 +28,9 @@ SCHEMA = Path(__file__).parent / "data" / "sarif-schema-2.1.0.json"
 SCRIPT = textwrap.dedent("""\
     import pandas as pd
     df = pd.read_csv("a.csv")
-    wide = df.pivot_table(index="a", columns="b", values="c")
+    wide = df.pivot_table(index="a", columns="b", values="c", margins=True)
     df.plot()
-    again = df.pivot_table(index="b", columns="a", values="c")
+    again = df.pivot_table(index="b", columns="a", values="c", margins=True)
 """)
 
 
@@ -39,7 +39,7 @@ def results() -> list[FileResult]:
     script = convert_source(SCRIPT, path="pkg/sub/clean.py")
     nb = new_notebook(cells=[new_markdown_cell("# notes"), new_code_cell("import pandas as pd"),
                              new_code_cell("df = pd.read_csv('a.csv')\n"
-                                           "p = df.pivot_table(index='a', columns='b', values='c')")])
+                                           "p = df.pivot_table(index='a', columns='b', values='c', margins=True)")])
     notebook = convert_notebook_text(nbformat.writes(nb), "notebooks/explore.ipynb", None)
     failed = FileResult("broken.py", None, "def f(:", "", (), status="failed", error="syntax error")
     return [script, notebook, failed]
@@ -79,7 +79,7 @@ def test_rules_listed_once_with_advice(results: list[FileResult]) -> None:
     run = to_sarif(results)["runs"][0]
     rules = run["tool"]["driver"]["rules"]
     assert [r["id"] for r in rules] == ["frame.pivot_table", "frame.plot"]
-    assert "LazyFrame.pivot" in rules[0]["help"]["text"]
+    assert "DataFrame.pivot" in rules[0]["help"]["text"]
     for found in run["results"]:
         assert rules[found["ruleIndex"]]["id"] == found["ruleId"]
 

@@ -392,3 +392,63 @@ def series_any_all(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("any/all of a column whose type porter does not know (text is true "
                           "when not empty in pandas)")
     return scalar_of(column, code.method(call.name), pytype="bool")
+
+
+@rule("frame.pivot_table")
+def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.pivot_table(index, columns, values, aggfunc, fill_value) -> group_by the keys, then
+    the collected groups pivoted (the new columns are the data's own values).
+
+    Handles: rows with a missing key are dropped and groups whose mean / median / min / max is
+    missing too, as pandas drops them; the new columns come in the order of their values
+    (sorted before the pivot: Polars names them as text) and the rows sorted by the index
+    keys; fill_value fills the missing cells; the index keys stay label columns.
+    Caveats: one values column and one columns key; sum, count, min and max without a
+    fill_value are TODOs (pandas turns the cells float when one is missing); margins,
+    dropna=False, sort=False and lists or dicts of functions are TODOs.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "values", "index", "columns", "aggfunc", "fill_value", "dropna",
+                       "margins", "sort", "observed", positional=5)
+    index = call.const("index", 1, None, kinds=(str, list, tuple))
+    columns = call.const("columns", 2, None, kinds=(str, list, tuple))
+    values = call.const("values", 0, None, kinds=(str, list, tuple))
+    if isinstance(columns, (list, tuple)) and len(columns) == 1:
+        columns = columns[0]
+    if isinstance(values, (list, tuple)) and len(values) == 1:
+        raise Unsupported("values given as a list: pandas keeps two levels of column labels")
+    if not isinstance(columns, str) or not isinstance(values, str):
+        raise Unsupported("one values column and one columns key only")
+    keys = [index] if isinstance(index, str) else list(index or [])
+    if not keys or not all(isinstance(k, str) for k in keys):
+        raise Unsupported("a pivot without index keys")
+    if call.const("margins", None, False) or not call.const("dropna", None, True) \
+            or not call.const("sort", None, True):
+        raise Unsupported("margins, dropna=False or sort=False")
+    how = how_name(call.arg("aggfunc", 3)) if call.has("aggfunc", 3) else "mean"
+    if how not in ("sum", "mean", "median", "min", "max", "count"):
+        raise Unsupported(f"aggfunc {how!r}")
+    fill = call.const("fill_value", 4, None)
+    if fill is not None and (isinstance(fill, bool) or not isinstance(fill, (int, float))):
+        raise Unsupported("a fill_value that is not a number")
+    if fill is None and how not in ("mean", "median"):
+        raise Unsupported(f"{how} without fill_value: pandas makes every cell float when one "
+                          "is missing, which depends on the data")
+    known = frame.columns
+    absent = [c for c in (*keys, columns, values) if known is not None and c not in known]
+    if absent:
+        raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
+    groups = [*keys, columns]
+    code = frame.code.method("drop_nulls", groups).method("group_by", groups).method(
+        "agg", agg_expr(emit.col(values), how, frame.dtype(values)))
+    if how in ("mean", "median", "min", "max"):
+        code = code.method("drop_nulls", values)  # pandas drops a group whose value is missing
+    # the new columns appear in the order the pivot meets their values: sorted first
+    code = code.method("sort", columns).method("collect").method(
+        "pivot", on=columns, index=keys[0] if len(keys) == 1 else keys, values=values)
+    code = code.method("sort", keys[0] if len(keys) == 1 else keys)
+    if fill is not None:
+        code = code.method("fill_null", fill)
+    ctx.lower("the new columns are named by their values as text (pandas keeps the values)", 0.95)
+    return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False)

@@ -12,7 +12,7 @@ cheeses = pl.scan_csv(
     infer_schema_length=None,
 )
 cheeses = cheeses.with_columns(age_weeks=pl.col("age_days") // 7)
-# TODO(porter): frame.pivot_table: LazyFrame.pivot(on, on_columns=[...], index, values, aggregate_function) with the columns listed, then sort the rows
+# TODO(porter): frame.pivot_table: sum without fill_value: pandas makes every cell float when one is missing, which depends on the data; group_by the keys, the…
 pivot = cheeses.collect().to_pandas().pivot_table(
     index="cellar",
     columns="kind",

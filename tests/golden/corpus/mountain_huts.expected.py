@@ -76,15 +76,19 @@ per_hut.sink_parquet("hut_summary.parquet")
 print(per_hut.collect())
 
 # the accountant wants a wide grid, one column per month
-# TODO(porter): frame.pivot_table: LazyFrame.pivot(on, on_columns=[...], index, values, aggregate_function) with the columns listed, then sort the rows
-grid = stays.collect().to_pandas().pivot_table(
-    index="hut",
-    columns="month",
-    values="guest_nights",
-    aggfunc="sum",
-    fill_value=0,
+grid = (
+    stays
+    .drop_nulls(["hut", "month"])
+    .group_by(["hut", "month"])
+    .agg(pl.col("guest_nights").sum())
+    .sort("month")
+    .collect()
+    .pivot(on="month", index="hut", values="guest_nights")
+    .sort("hut")
+    .fill_null(0)
+    .lazy()
 )
-grid.reset_index().to_csv("hut_month_grid.csv", index=False)
+grid.with_columns(PANDAS_CSV_DATETIMES).sink_csv("hut_month_grid.csv")
 
 unpaid = (
     stays
