@@ -317,25 +317,34 @@ def test_read_csv_with_data_is_told_the_schema(data: Path) -> None:
         import pandas as pd
         result = pd.read_csv("produce.csv")
         """, data_dir=str(data))
-    assert "schema={" in result.converted_text
-    assert "infer_schema_length" not in result.converted_text
+    assert "schema_overrides={" in result.converted_text
+    assert "infer_schema_length=0" in result.converted_text  # matched by name, nothing inferred
 
 
 def test_files_of_one_layout_read_by_one_function_share_the_schema(data: Path) -> None:
     (data / "week1.csv").write_text("crate,kg\nA,1.5\nB,\n", encoding="utf-8")
     (data / "week2.csv").write_text("crate,kg\nC,2\nÉ,3.25\n", encoding="utf-8")
-    (data / "week3.csv").write_text("crate,kg,note\nD,1,x\n", encoding="utf-8")
+    (data / "week3.csv").write_text("crate,kg,note\nD,1.25,x\n", encoding="utf-8")
     result = differential("""
         import pandas as pd
         def load(path):
             return pd.read_csv(path)
         result = pd.concat([load("week1.csv"), load("week2.csv")])
         """, data_dir=str(data))
-    assert "schema={" in result.converted_text
-    other = convert("""
+    assert "infer_schema_length=0" in result.converted_text
+    # two layouts that agree on the types of the columns they share: every column is typed
+    other = differential("""
         import pandas as pd
         def load(path):
             return pd.read_csv(path)
         result = pd.concat([load("week1.csv"), load("week3.csv")])
         """, data_dir=str(data))
-    assert "infer_schema_length=None" in other.converted_text  # two layouts: inferred as before
+    assert '"note": pl.String' in other.converted_text
+    (data / "week4.csv").write_text("crate,kg\nF,heavy\n", encoding="utf-8")
+    clash = convert("""
+        import pandas as pd
+        def load(path):
+            return pd.read_csv(path)
+        result = pd.concat([load("week1.csv"), load("week4.csv")])
+        """, data_dir=str(data))
+    assert "infer_schema_length=None" in clash.converted_text  # kg is a number in one, text in the other

@@ -34,6 +34,7 @@ class FileSchema(dict[str, str]):
     (as code, `pl.Int64`) when every column has one a scan can be told."""
 
     polars: dict[str, str] | None = None
+    partial: bool = False  # several files' columns together: which one a read gets is not known
 
 
 def polars_code(dtype: pl.DataType) -> str | None:
@@ -44,6 +45,27 @@ def polars_code(dtype: pl.DataType) -> str | None:
         if dtype == kind:
             return code
     return None
+
+
+def merged(schemas: list[FileSchema]) -> FileSchema | None:
+    """The schema several files of one read share (a function called with each): the same
+    columns, or, when their columns differ but agree on the types of the names they share,
+    every column's type with `partial` set."""
+    first = schemas[0]
+    if all(list(s.items()) == list(first.items()) and s.polars == first.polars for s in schemas):
+        return first
+    names: dict[str, str] = {}
+    codes: dict[str, str] = {}
+    for schema in schemas:
+        if schema.polars is None:
+            return None
+        for name, kind in schema.items():
+            if names.setdefault(name, kind) != kind or codes.setdefault(name, schema.polars[name]) \
+                    != schema.polars[name]:
+                return None
+    found = FileSchema(names)
+    found.polars, found.partial = codes, True
+    return found
 
 
 class SchemaReader:

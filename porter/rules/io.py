@@ -122,13 +122,16 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     exact = getattr(schema, "polars", None)
     if exact and "" not in exact:
         # --data gave the file: the scan is told the types porter read (inferring them over
-        # the whole file again would read it twice); a later file whose values do not fit
-        # them fails loudly instead of reading other types
+        # the whole file again would read it twice). They are matched to the header by name;
+        # a later file whose values do not fit them fails loudly, and a column it adds is
+        # read as text (infer_schema_length=0) where pandas would infer its type
         kwargs.pop("schema_overrides", None)
         kwargs.pop("infer_schema_length", None)
-        kwargs = {"schema": {c: overrides.get(c, emit.atom(t)) for c, t in exact.items()}, **kwargs}
+        kwargs = {"schema_overrides": {c: overrides.get(c, emit.atom(t)) for c, t in exact.items()},
+                  "infer_schema_length": 0, **kwargs}
         ctx.lower("the column types are the ones read from --data: a file whose values do not "
-                  "fit them fails to read (pandas would read other types)", 0.95)
+                  "fit them fails to read, and a column it adds is read as text (pandas would "
+                  "infer other types)", 0.95)
     code = emit.pl("scan_csv", source.code, **kwargs)
     if schema and any(re.search(r"_duplicated_\d+$", c) for c in schema):
         raise ctx.todo("the header repeats a name: pandas names the copy 'x.1' (an empty one "
@@ -137,7 +140,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     if unnamed:  # an empty header (a written index): pandas names it by its position
         code = code.method("rename", unnamed)
         schema = {unnamed.get(c, c): kind for c, kind in schema.items()}  # type: ignore[union-attr]
-    columns = tuple(schema) if schema else None
+    columns = tuple(schema) if schema and not getattr(schema, "partial", False) else None
     for column, kind in (schema or {}).items():
         dtypes.setdefault(column, kind)
     frame = Frame(code, columns=columns, dtypes=tuple(dtypes.items()))

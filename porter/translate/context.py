@@ -8,6 +8,7 @@ from typing import Any
 
 import libcst as cst
 
+from porter.analysis.schema import FileSchema, merged
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.model import MappingEntry
@@ -125,10 +126,9 @@ class RuleContext:
             return None
         if isinstance(path, tuple) and path and all(isinstance(p, str) for p in path):
             found = [self.schema_lookup(reader, p, options) for p in path]
-            first = found[0]
-            same = all(f is not None and list(f.items()) == list(first.items())
-                       and getattr(f, "polars", None) == getattr(first, "polars", None) for f in found)
-            return first if same else None
+            if not all(isinstance(f, FileSchema) for f in found):
+                return None
+            return merged(found)  # type: ignore[arg-type]
         if not isinstance(path, str):
             return None
         return self.schema_lookup(reader, path, options)
