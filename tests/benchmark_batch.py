@@ -117,7 +117,10 @@ def main() -> int:
     lines += ["", "Parsing and printing alone is the floor: porter parses each file once and runs its",
               "analysis a few times (the helper-function fixpoint), so it costs a multiple of that;",
               "a second core should nearly halve the wall time."]
-    args.out.write_text("\n".join(lines) + "\n", encoding="utf-8")
+    # the page's other sections (tests/benchmark_speed.py writes one) are kept
+    existing = args.out.read_text(encoding="utf-8") if args.out.exists() else ""
+    rest = existing[existing.index("\n## ") + 1:] if "\n## " in existing else ""
+    args.out.write_text("\n".join(lines) + "\n" + ("\n" + rest if rest else ""), encoding="utf-8")
     print("\n".join(lines))
     return 0
 
