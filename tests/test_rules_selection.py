@@ -195,7 +195,9 @@ def test_unicode_column_names_and_empty_frame() -> None:
 
 
 def test_shape_subscript() -> None:
-    differential(FRAME + "result = df.shape[0]\n")
+    result = differential(FRAME + "result = df.shape[0]\nwidth = df.shape[1]\nlast = df.shape[-1]\n"
+                          "empty = df[df['kg'] > 1e9].shape[0]\n", "result", "width", "last", "empty")
+    assert "collect_schema" not in result.converted_text.splitlines()[-4]  # rows only
 
 
 def test_series_taken_before_the_frame_is_filtered() -> None:

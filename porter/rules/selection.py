@@ -195,9 +195,15 @@ def row_count(frame: Frame) -> Code:
 
 @rule("frame.shape")
 def shape(call: PandasCall, ctx: RuleContext) -> Value:
-    """df.shape -> (rows, columns): rows counted by a query, columns from the schema."""
+    """df.shape -> (rows, columns): rows counted by a query, columns from the schema;
+    df.shape[0] / df.shape[1] compute only the one asked for."""
     frame = frame_of(call)
     width = emit.call("len", frame.code.method("collect_schema"))
+    if call.args:
+        position = call.args[0].const  # type: ignore[attr-defined]
+        if position in (0, -2):
+            return Scalar(row_count(frame), pytype="int")
+        return Scalar(width, pytype="int")
     return Scalar(emit.Code(f"({row_count(frame).text}, {width.text})"), pytype="tuple")
 
 

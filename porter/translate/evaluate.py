@@ -358,6 +358,9 @@ class Evaluator:
 
     # -- subscripts -----------------------------------------------------------------------------
     def _eval_Subscript(self, node: cst.Subscript) -> Value:
+        shape = self.shape_item(node)
+        if shape is not None:
+            return shape
         receiver = self.eval(node.value)
         if isinstance(receiver, Opaque) and isinstance(receiver.const, dict) and len(node.slice) == 1 \
                 and isinstance(node.slice[0].slice, cst.Index):
@@ -379,6 +382,19 @@ class Evaluator:
             return self.dispatch(f"frame.{receiver.kind}", call, node)
         call = PandasCall(receiver, "getitem", (key_value,), node=node)
         return self.dispatch(_getitem_key(receiver, key_value), call, node)
+
+    def shape_item(self, node: cst.Subscript) -> Value | None:
+        """`df.shape[0]`: only the row count is computed (not the whole tuple)."""
+        owner = node.value
+        if not (isinstance(owner, cst.Attribute) and owner.attr.value == "shape"
+                and len(node.slice) == 1 and isinstance(node.slice[0].slice, cst.Index)):
+            return None
+        frame = self.eval(owner.value)
+        key = self.eval(node.slice[0].slice.value)
+        if not (isinstance(frame, Frame) and isinstance(key, Opaque) and key.const in (0, 1, -1, -2)
+                and not isinstance(key.const, bool)):
+            return None
+        return self.dispatch("frame.shape", PandasCall(frame, "shape", (key,), node=node), node)
 
     def eval_slice(self, node: cst.Slice) -> Value:
         parts = []

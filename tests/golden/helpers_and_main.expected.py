@@ -33,7 +33,7 @@ def main():
     summary = per_route(tickets).collect().lazy()
     summary.sink_csv("routes.csv")
     print(
-        f"{tickets.select(pl.len()).collect().item()} tickets, {(summary.select(pl.len()).collect().item(), len(summary.collect_schema()))[0]} routes",
+        f"{tickets.select(pl.len()).collect().item()} tickets, {summary.select(pl.len()).collect().item()} routes",
     )
 
 
