@@ -9,7 +9,7 @@ from __future__ import annotations
 import pytest
 
 from rule_checks import check_ports, check_todo, check_unchanged
-from support import differential
+from support import convert, differential
 
 FRAME = '''
 import numpy as np
@@ -80,3 +80,47 @@ def test_scalars_match_pandas(expr: str) -> None:
 
 def test_display_settings_are_left_alone() -> None:
     check_unchanged("import pandas as pd\npd.set_option('display.max_columns', 20)\n")
+
+
+# -- within groups: window expressions -----------------------------------------------------------
+
+GROUPED = FRAME.replace('"k": ["a", "b", None, "a", "ünï", "b"]})',
+                        '"k": ["a", "b", None, "a", "ünï", "b"], "g": ["x", "x", "y", None, "x", "y"]})')
+
+
+@pytest.mark.parametrize("expr", [
+    'df.groupby("k")["v"].transform("sum")',
+    'df.groupby("k")["v"].transform("mean")',
+    'df.groupby("k")["n"].transform("max")',
+    'df.groupby("k")["v"].transform("count")',
+    'df.groupby("k")["n"].transform("size")',
+    'df.groupby(["k", "g"])["n"].transform("min")',
+    'df.groupby("k", dropna=False)["n"].transform("sum")',
+    'df.groupby("k")["v"].cumsum()',
+    'df.groupby("k")["n"].cummax()',
+    'df.groupby("g")["v"].cummin()',
+    'df.groupby("k")["v"].shift(1)',
+    'df.groupby("k")["n"].shift(-1, fill_value=0)',
+    'df.groupby("g")["v"].diff()',
+    'df.groupby("k").cumcount()',
+    'df.groupby("g").cumcount(ascending=False)',
+    'df.groupby("k").n.cumsum()',
+])
+def test_group_windows_match_pandas(expr: str) -> None:
+    result = differential(GROUPED + f'df["w"] = {expr}\nresult = df\n')
+    assert not result.todos, result.converted_text
+
+
+def test_group_windows_on_an_empty_frame() -> None:
+    differential(EMPTY + 'df["w"] = df.groupby("k")["v"].transform("sum")\n'
+                 'df["c"] = df.groupby("k").cumcount()\nresult = df\n')
+
+
+@pytest.mark.parametrize("expr", [
+    'df.groupby("k")["v"].transform(lambda s: s - s.mean())',
+    'df.groupby("k")["v"].transform(np.sum)',
+    'df.groupby("k")[["v", "n"]].cumsum()',
+    'df.groupby("k")["v"].cumsum(skipna=False)',
+])
+def test_group_windows_porter_cannot_read_are_todos(expr: str) -> None:
+    assert convert(GROUPED + f'df["w"] = {expr}\n').todos
