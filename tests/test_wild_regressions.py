@@ -268,3 +268,23 @@ def test_a_series_computed_row_for_row_from_the_frame_is_put_back():
         result = df
     """, "result")
     assert "pl.Series(" in text
+
+
+def test_no_todo_says_a_column_the_script_made_is_missing():
+    # item 7 of the wild-code report: "column 'x' is not in the frame" for a column the script
+    # created a few lines before. Columns made by setitem, assign, rename, insert (on pandas,
+    # then back in Polars) and merge are known to every later rule.
+    result = convert_source(textwrap.dedent("""
+        import pandas as pd
+        df = pd.DataFrame({"k": ["a", "b", "a"], "v": [1.0, 2.0, None]})
+        df["w"] = df["v"] * 2
+        df = df.assign(z=df["w"] + 1)
+        df.insert(0, "first", 1)
+        df["q"] = df["first"] + df["z"]
+        df = df.rename(columns={"q": "qq"})
+        both = df.merge(df[["k", "qq"]].rename(columns={"qq": "q2"}), on="k")
+        out = both.groupby("k")["q2"].sum()
+        wide = both.pivot_table(index="k", columns="first", values="z", aggfunc="sum", fill_value=0)
+        last = both.sort_values("w").drop_duplicates(subset=["k"], keep="last")
+    """))
+    assert not [s for s in result.sites if "not in the frame" in s.message]
