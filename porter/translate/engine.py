@@ -4,6 +4,7 @@ rewritten statements (with TODO markers) back into the module."""
 from __future__ import annotations
 
 import ast
+import textwrap
 from dataclasses import dataclass, field, replace
 from typing import Any
 
@@ -25,7 +26,7 @@ from porter.translate.values import (
 )
 
 TODO_PREFIX = "# TODO(porter): "
-MAX_COMMENT = 160
+MAX_COMMENT = 100
 
 
 @dataclass
@@ -972,11 +973,12 @@ def _todo_comments(sites: list[SiteDraft], line: Any) -> list[cst.EmptyLine]:
         if site.status != "todo" or site.key in marked:
             continue
         text = TODO_PREFIX + f"{site.key}: {site.message}"
-        text = " ".join(text.split())
-        if len(text) > MAX_COMMENT:
-            text = text[: MAX_COMMENT - 1].rstrip() + "…"
+        # whole sentences: a long reason goes on over indented comment lines, never cut off
+        lines = textwrap.wrap(" ".join(text.split()), width=MAX_COMMENT,
+                              subsequent_indent="#   ", break_long_words=False,
+                              break_on_hyphens=False)
         marked.add(site.key)
-        comments.append(cst.EmptyLine(comment=cst.Comment(text)))
+        comments += [cst.EmptyLine(comment=cst.Comment(line)) for line in lines]
         if site.suggestion:
             lines = site.suggestion.splitlines()
             comments.append(cst.EmptyLine(comment=cst.Comment(f"#   suggested: {lines[0]}")))

@@ -12,7 +12,9 @@ cheeses = pl.scan_csv(
     infer_schema_length=None,
 )
 cheeses = cheeses.with_columns(age_weeks=pl.col("age_days") // 7)
-# TODO(porter): frame.pivot_table: sum without fill_value: pandas makes every cell float when one is missing, which depends on the data; group_by the keys, the…
+# TODO(porter): frame.pivot_table: sum without fill_value: pandas makes every cell float when one is
+#   missing, which depends on the data; group_by the keys, then DataFrame.pivot(on, index, values)
+#   with the columns sorted
 pivot = cheeses.collect().to_pandas().pivot_table(
     index="cellar",
     columns="kind",
@@ -20,6 +22,7 @@ pivot = cheeses.collect().to_pandas().pivot_table(
     aggfunc="sum",
 )
 pivot.to_csv("cellar_pivot.csv")
-# TODO(porter): frame.iterrows: row loops have no lazy form: express the loop body as column expressions, or collect and use iter_rows(named=True)
+# TODO(porter): frame.iterrows: row loops have no lazy form: express the loop body as column
+#   expressions, or collect and use iter_rows(named=True)
 for _, row in cheeses.collect().to_pandas().iterrows():
     print(row["name"])

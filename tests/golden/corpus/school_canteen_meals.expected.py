@@ -85,7 +85,8 @@ risky = served.filter(
     pl.col("menu").is_in(["meat", "fish"]) & pl.col("allergen").is_not_null(),
 )
 dates, pupils, notes = [], [], []
-# TODO(porter): frame.iterrows: row loops have no lazy form: express the loop body as column expressions, or collect and use iter_rows(named=True)
+# TODO(porter): frame.iterrows: row loops have no lazy form: express the loop body as column
+#   expressions, or collect and use iter_rows(named=True)
 for _, row in risky.collect().to_pandas().iterrows():
     dates.append(row["served_on"])
     pupils.append(row["pupil_id"])
