@@ -108,3 +108,15 @@ def test_dtypes_names_every_column() -> None:
     # the dtype names differ (Polars' own), so the check is on the columns they describe
     source = FRAME + "result = list(dict(df.dtypes))\n"
     assert run(source)["result"] == run(convert(source).converted_text)["result"]
+
+
+def test_values_of_dates_beside_numbers_are_pandas_own():
+    # pandas keeps Timestamps in an object array; Polars' to_numpy would cast them to numbers
+    result = differential("""
+import pandas as pd
+df = pd.DataFrame({"n": [1, 2], "label": ["é", None]})
+df["when"] = pd.to_datetime(df["n"], unit="D")
+result = df.to_numpy()
+numbers = df[["n"]].values
+""", "result", "numbers")
+    assert ".to_pandas().to_numpy()" in result.converted_text

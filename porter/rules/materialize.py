@@ -37,24 +37,23 @@ def series_values(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("frame.values", "frame.to_numpy")
 def frame_values(call: PandasCall, ctx: RuleContext) -> Value:
-    """DataFrame.values / to_numpy() -> collect, .to_numpy().
+    """DataFrame.values / to_numpy() -> collect, .to_numpy() for numbers; the array pandas
+    makes (to_pandas().to_numpy()) for anything else.
 
-    Handles: missing numbers become nan; mixed column types give an object array in both.
+    Handles: missing numbers become nan; a frame of numbers only is Polars' own array; text,
+    dates beside other columns (pandas keeps Timestamps in an object array, Polars casts them
+    to numbers) and columns of unknown type are handed to pandas for the array, which gives
+    pandas' values exactly.
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
     ctx.reject_unknown(call)
     if frame.index:
         raise ctx.todo("the frame's index columns would be included (they are not in pandas' values)")
-    kinds = {t for _, t in frame.dtypes}
-    if kinds & {"datetime", "date"} and len(kinds) > 1:
-        raise ctx.todo("dates beside other columns: pandas gives an object array of Timestamps, "
-                       "Polars casts the dates to numbers")
-    if not (frame.dtypes and all(t in ("int", "float", "bool") for _, t in frame.dtypes)
-            and frame.columns is not None and len(frame.dtypes) == len(frame.columns)):
-        ctx.lower("text columns give None for missing values where pandas gives nan", 0.95)
-        if ctx.datetimes_possible and not kinds & {"datetime", "date"}:
-            ctx.lower("a date column beside other columns would become numbers (pandas keeps "
-                      "Timestamps in an object array); the column types are not all known", 0.8)
-    return Scalar(frame.code.method("collect").method("to_numpy"), pytype="array")
+    numbers = frame.dtypes and all(t in ("int", "float", "bool") for _, t in frame.dtypes) \
+        and frame.columns is not None and len(frame.dtypes) == len(frame.columns)
+    if numbers:
+        return Scalar(frame.code.method("collect").method("to_numpy"), pytype="array")
+    ctx.handover = True  # pandas' own array: object cells as pandas holds them
+    return Scalar(frame.code.method("collect").method("to_pandas").method("to_numpy"), pytype="array")
 
