@@ -121,3 +121,29 @@ def test_list_values_cross_the_boundary_as_lists():
         df.insert(0, "port", "Sandvik")
         result = df.explode("parts")
     """, "result")
+
+
+def test_a_frame_kept_on_pandas_by_a_loop_comes_back_after_it():
+    text = both("""
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        for i in range(3):
+            df.at[i, "tons"] = i * 10.0
+        df["double"] = df["tons"] * 2
+        totals = df.groupby("berth")["double"].sum().reset_index()
+    """, "totals", "df")
+    lines = text.splitlines()
+    loop = next(i for i, line in enumerate(lines) if line.startswith("for i"))
+    assert lines[loop - 1] == "df = df.collect().to_pandas()"
+    assert "df = pl.from_pandas(df).lazy()" in lines[loop + 2:]
+
+
+def test_a_loop_that_hands_over_and_back_in_each_turn_stays_consistent():
+    both("""
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        for step in range(2):
+            df.insert(0, f"step{step}", step)
+            df["tons"] = df["tons"] * 2
+        result = df
+    """, "result")

@@ -256,9 +256,11 @@ class _Walker:
         # A frame the body hands over to pandas is a pandas frame from the first iteration on:
         # it is handed over once before the loop, never left as a LazyFrame inside it.
         before: list[Any] = []
+        handed: dict[str, Frame] = {}
         for name, value in loop_env.items():
             if isinstance(value, Frame) and isinstance(after.get(name), PandasValue):
-                widened[name] = PandasValue(emit.atom(name))
+                widened[name] = PandasValue(emit.atom(name))  # pandas in every iteration
+                handed[name] = value
                 line = f"{name} = {handover.to_pandas(value).text}\n"
                 before.append(cst.parse_statement(line))
         body, after = self.indented(stmt.body, widened, unit, indent)
@@ -272,8 +274,10 @@ class _Walker:
             self.record(tuple(first_todos))
             before[0] = before[0].with_changes(
                 leading_lines=[*stmt.leading_lines, *_todo_comments(first_todos, before[0])])
-            return [*before, stmt.with_changes(**changes, leading_lines=())], _merge(widened, after)
-        return [stmt.with_changes(**changes)], _merge(env if not before else widened, after)
+            return [*before, stmt.with_changes(**changes, leading_lines=())], \
+                _after_loop(_merge(widened, after), handed)
+        return [stmt.with_changes(**changes)], \
+            _after_loop(_merge(env if not before else widened, after), handed)
 
     def header(self, expr: cst.BaseExpression, env: dict[str, Value], owner: cst.CSTNode,
                value: Value | None = None) -> cst.BaseExpression:
@@ -840,6 +844,15 @@ def _same_code(a: str, b: str) -> bool:
         return ast.dump(ast.parse(a.strip())) == ast.dump(ast.parse(b.strip()))
     except SyntaxError:
         return False
+
+
+def _after_loop(env: dict[str, Value], handed: dict[str, Frame]) -> dict[str, Value]:
+    """After a loop that kept frames on pandas, each may come back to Polars at the next
+    statement porter can rewrite whole (what the loop did to its columns is not known)."""
+    for name, frame in handed.items():
+        if isinstance(env.get(name), PandasValue):
+            env[name] = PandasValue(emit.atom(name), frame=_after_change(name, frame, None))
+    return env
 
 
 def _names_read(stmt: cst.CSTNode) -> list[str]:
