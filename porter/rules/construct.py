@@ -186,6 +186,9 @@ def data_frame(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo("an empty DataFrame has no schema to build lazily")
     if isinstance(data, Opaque) and data.is_const:
         return literal_frame(call, ctx, data.const)
+    if isinstance(data, Opaque) and ".to_pandas()" in data.code.text:
+        # values porter already handed to pandas (an earlier run's output): as on that run
+        raise ctx.todo("building a frame from another pandas object")
     if isinstance(data, Opaque):
         # the shape is only known at run time (a 2-D array is rows, a dict is columns):
         # pandas builds the frame exactly as before, Polars takes it over once
