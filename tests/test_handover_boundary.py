@@ -147,3 +147,36 @@ def test_a_loop_that_hands_over_and_back_in_each_turn_stays_consistent():
             df["tons"] = df["tons"] * 2
         result = df
     """, "result")
+
+
+@pytest.mark.parametrize("flag", ["True", "False"])
+def test_a_frame_handed_over_in_one_branch_is_pandas_after_either(flag):
+    # the branch that kept the frame in Polars hands it over too: the code after the `if`
+    # ran on a LazyFrame when the other branch was taken (`df["z"] = ...` failed)
+    text = both(f"""
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        flag = {flag}
+        if flag:
+            df.insert(0, "port", "Sandvik")
+        else:
+            df["double"] = df["tons"] * 2
+        df["z"] = df["crates"] + 1
+        result = df
+    """, "result")
+    assert text.count("df = df.collect().to_pandas()") == 2
+
+
+def test_a_frame_handed_over_in_an_elif_chain_is_checked_after_it():
+    for flag in ("1", "2", "3"):
+        both(f"""
+            import pandas as pd
+            df = pd.read_csv("cargo.csv")
+            flag = {flag}
+            if flag == 1:
+                df.insert(0, "port", "Sandvik")
+            elif flag == 2:
+                df["double"] = df["tons"] * 2
+            df["z"] = df["crates"] + 1
+            result = df
+        """, "result")

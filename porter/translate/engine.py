@@ -230,7 +230,35 @@ class _Walker:
         elif isinstance(orelse, cst.Else):
             else_body, env_else = self.indented(orelse.body, env, unit, indent)
             orelse = orelse.with_changes(body=else_body)
-        return [stmt.with_changes(test=test, body=body, orelse=orelse)], _merge(env_body, env_else)
+        after: list[Any] = []
+        for name in sorted(env_body.keys() & env_else.keys()):
+            # one branch handed the frame to pandas, the other kept it in Polars: the Polars
+            # branch hands it over too, so the code after the `if` meets a pandas frame
+            # either way (and takes it back to Polars where it can)
+            values = (env_body[name], env_else[name])
+            if not (any(isinstance(v, PandasValue) for v in values)
+                    and any(isinstance(v, Frame) for v in values)):
+                continue
+            frame = next(v for v in values if isinstance(v, Frame))
+            line = cst.parse_statement(
+                f"# handed to pandas, as the other branch does\n"
+                f"{name} = {handover.to_pandas(frame).text}\n")
+            if isinstance(env_body[name], Frame) and isinstance(body, cst.IndentedBlock):
+                body = body.with_changes(body=[*body.body, line])
+            elif isinstance(env_else[name], Frame) and orelse is None:
+                orelse = cst.Else(body=cst.IndentedBlock(body=[line]))
+            elif isinstance(env_else[name], Frame) and isinstance(orelse, cst.Else) \
+                    and isinstance(orelse.body, cst.IndentedBlock):
+                orelse = orelse.with_changes(body=orelse.body.with_changes(
+                    body=[*orelse.body.body, line]))
+            else:  # an elif chain or a one-line branch: checked once the `if` is done
+                after.append(cst.parse_statement(
+                    f"if isinstance({name}, pl.LazyFrame):  # handed to pandas, as other branches do\n"
+                    f"    {name} = {name}.collect().to_pandas()\n"))
+            back = PandasValue(emit.atom(name), frame=_after_change(name, frame, None))
+            env_body[name] = env_else[name] = back
+        return [stmt.with_changes(test=test, body=body, orelse=orelse), *after], \
+            _merge(env_body, env_else)
 
     def loop(self, stmt: cst.For | cst.While, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
         changes: dict[str, Any] = {}
