@@ -457,7 +457,10 @@ class _Walker:
                 # it in place ("assignment destination is read-only"): a copy of its own
                 code = code.method("copy")
             lines.append(f"{name} = {code.text}")
-            env[name] = PandasValue(emit.atom(name), frame=_after_change(name, value, None, what))
+            # labels pandas allows twice (insert(..., allow_duplicates=True)) cannot come back
+            repeats = "allow_duplicates" in self.services.code_for(stmt)
+            env[name] = PandasValue(emit.atom(name),
+                                    frame=None if repeats else _after_change(name, value, None, what))
             sites.append(SiteDraft(f"{kind}.{what}", "handover", "todo", 0.0,
                                    f"`{what}` changes the {'frame' if kind == 'frame' else 'Series'} "
                                    f"in place, which porter does not rewrite: `{name}` is handed "
