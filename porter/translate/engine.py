@@ -231,6 +231,7 @@ class _Walker:
             else_body, env_else = self.indented(orelse.body, env, unit, indent)
             orelse = orelse.with_changes(body=else_body)
         after: list[Any] = []
+        env_body, env_else = dict(env_body), dict(env_else)  # `env_else` may be `env` itself
         for name in sorted(env_body.keys() & env_else.keys()):
             # one branch handed the frame to pandas, the other kept it in Polars: the Polars
             # branch hands it over too, so the code after the `if` meets a pandas frame
