@@ -26,31 +26,25 @@ import polars as pl
 scans = collections.Counter()
 busy = []
 
-def counted(method):
-    def run(self, *args, **kwargs):
-        if not busy:  # a sink may execute through collect: one execution, counted once
-            for path in set(re.findall(r"SCAN \[([^\]]+)\]", self.explain(optimized=False))):
+def record(frames):
+    if not busy:  # a sink may execute through collect: one execution, counted once
+        for frame in frames:
+            for path in set(re.findall(r"SCAN \[([^\]]+)\]", frame.explain(optimized=False))):
                 scans[path] += 1
+
+def counted(method, frames_of):
+    def run(*args, **kwargs):
+        record(frames_of(*args))
         busy.append(1)
         try:
-            return method(self, *args, **kwargs)
+            return method(*args, **kwargs)
         finally:
             busy.pop()
     return run
 
 for name in ("collect", "sink_csv", "sink_parquet", "sink_ndjson", "sink_ipc"):
-    setattr(pl.LazyFrame, name, counted(getattr(pl.LazyFrame, name)))
-collect_all = pl.collect_all
-def counted_all(frames, *args, **kwargs):
-    for frame in frames:
-        for path in set(re.findall(r"SCAN \[([^\]]+)\]", frame.explain(optimized=False))):
-            scans[path] += 1
-    busy.append(1)
-    try:
-        return collect_all(frames, *args, **kwargs)
-    finally:
-        busy.pop()
-pl.collect_all = counted_all
+    setattr(pl.LazyFrame, name, counted(getattr(pl.LazyFrame, name), lambda self, *a: [self]))
+pl.collect_all = counted(pl.collect_all, lambda frames, *a: list(frames))
 runpy.run_path(sys.argv[1], run_name="__main__")
 with open("scans.json", "w", encoding="utf-8") as handle:
     json.dump(scans, handle)

@@ -280,3 +280,14 @@ def test_row_function_on_an_empty_frame() -> None:
 def test_functions_porter_cannot_read_stay_todos(source: str) -> None:
     result = convert(FRAME + source)
     assert result.todos
+
+
+def test_numbers_in_a_row_of_numbers_are_floats_as_pandas_passes_them() -> None:
+    differential('import pandas as pd\ndf = pd.DataFrame({"n": [1, 2, 3], "v": [1.5, None, 0.25]})\n'
+                 'def describe(row):\n    return str(row["n"]) + " of " + str(row.v)\n'
+                 'df["r"] = df.apply(describe, axis=1)\nresult = df\n')
+
+
+def test_a_function_with_a_second_parameter_is_a_todo() -> None:
+    result = convert(FRAME + 'def scale(x, by=2):\n    return x * by\ndf["r"] = df["v"].apply(scale)\n')
+    assert any(s.key == "series.apply" for s in result.todos)

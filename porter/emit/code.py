@@ -10,6 +10,7 @@ from __future__ import annotations
 from collections.abc import Iterable, Mapping
 from dataclasses import dataclass, field
 import math
+from typing import Any
 
 # Python operator precedence, lowest to highest.
 LAMBDA, TERNARY, OR, AND, NOT, COMPARE, BIT_OR, BIT_XOR, BIT_AND = 0, 1, 2, 3, 4, 5, 6, 7, 8
@@ -226,19 +227,20 @@ def _split_argument(arg: str, indent: str, width: int) -> list[str]:
     before each step (inside the call's brackets no extra parentheses are needed)."""
     if len(indent) + len(arg) + 1 <= width:
         return [f"{indent}{arg},"]
-    entries = _dict_parts(arg)
+    parsed = _one_argument(arg)
+    entries = _dict_parts(parsed) if parsed is not None else None
     if entries is not None:
         head, items = entries
         return [f"{indent}{head}{{", *(f"{indent}    {item}," for item in items), f"{indent}}},"]
-    parts = _chain_parts(arg)
+    parts = _chain_parts(parsed) if parsed is not None else None
     if parts is None:
         return [f"{indent}{arg},"]
     head, steps = parts
     return [f"{indent}{head}", *(f"{indent}{step}" for step in steps[:-1]), f"{indent}{steps[-1]},"]
 
 
-def _dict_parts(arg: str) -> tuple[str, list[str]] | None:
-    """`kw={"a": 1, "b": 2}` -> ("kw=", ['"a": 1', '"b": 2']): a dict laid out one entry per line."""
+def _one_argument(arg: str) -> Any:
+    """One argument's text (`kw=value` or `value`) as a libcst Arg; None if it is not one."""
     import libcst as cst
 
     try:
@@ -246,30 +248,29 @@ def _dict_parts(arg: str) -> tuple[str, list[str]] | None:
     except cst.ParserSyntaxError:
         return None
     assert isinstance(call, cst.Call)
-    if len(call.args) != 1 or not isinstance(call.args[0].value, cst.Dict):
+    return call.args[0] if len(call.args) == 1 else None
+
+
+def _dict_parts(arg: Any) -> tuple[str, list[str]] | None:
+    """`kw={"a": 1, "b": 2}` -> ("kw=", ['"a": 1', '"b": 2']): a dict laid out one entry per line."""
+    import libcst as cst
+
+    if not isinstance(arg.value, cst.Dict):
         return None
     module = cst.Module([])
-    keyword = call.args[0].keyword
     items = [module.code_for_node(e.with_changes(comma=cst.MaybeSentinel.DEFAULT)).strip()
-             for e in call.args[0].value.elements]
-    return (f"{keyword.value}=" if keyword is not None else ""), items
+             for e in arg.value.elements]
+    return (f"{arg.keyword.value}=" if arg.keyword is not None else ""), items
 
 
-def _chain_parts(arg: str) -> tuple[str, list[str]] | None:
+def _chain_parts(arg: Any) -> tuple[str, list[str]] | None:
     """`kw=a.b(x).c(y)` -> ("kw=a.b(x)", [".c(y)"]): the steps of a method chain that is
     called on another call (pl.when(...).then(...), pl.col(...).str.strip_chars().alias(...))."""
     import libcst as cst
 
-    try:
-        call = cst.parse_expression(f"_({arg})")
-    except cst.ParserSyntaxError:
-        return None
-    assert isinstance(call, cst.Call)
-    if len(call.args) != 1:
-        return None
     module = cst.Module([])
-    keyword = call.args[0].keyword
-    node: cst.BaseExpression = call.args[0].value
+    keyword = arg.keyword
+    node: cst.BaseExpression = arg.value
     steps: list[str] = []
     while isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute) \
             and not node.lpar and not node.func.lpar:

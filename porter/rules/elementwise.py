@@ -14,6 +14,7 @@ from dataclasses import replace
 
 import libcst as cst
 
+from porter.analysis import pandas_names
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
@@ -70,8 +71,8 @@ def body_expression(function: cst.FunctionDef) -> cst.BaseExpression:
     (loops, calls for their effect, a branch that falls through) raises Unsupported."""
     params = function.params
     if params.star_arg not in (None, cst.MaybeSentinel.DEFAULT) or params.star_kwarg \
-            or params.kwonly_params or any(p.default is not None for p in params.params[1:]):
-        raise Unsupported("a function with more than one parameter")
+            or params.kwonly_params or params.posonly_params or len(params.params) != 1:
+        raise Unsupported("a function that does not take exactly one value")
     body = function.body
     if not isinstance(body, cst.IndentedBlock):
         body = cst.IndentedBlock(body=[cst.SimpleStatementLine(body=list(body.body))])
@@ -96,15 +97,11 @@ class _Substitute(cst.CSTTransformer):
         return value.with_changes(lpar=[cst.LeftParen()], rpar=[cst.RightParen()]) \
             if value is not None else updated
 
-    def visit_Attribute(self, node: cst.Attribute) -> bool:
-        node.value.visit(self)  # only the object, never the attribute's own name
-        return False
-
     def leave_Attribute(self, original: cst.Attribute, updated: cst.Attribute) -> cst.BaseExpression:
-        return updated.with_changes(value=original.value.visit(self))
+        return updated.with_changes(attr=original.attr)  # `x.name`: the attribute is no local
 
-    def visit_Arg(self, node: cst.Arg) -> bool:
-        return True
+    def leave_Arg(self, original: cst.Arg, updated: cst.Arg) -> cst.Arg:
+        return updated.with_changes(keyword=original.keyword)  # `f(name=...)`: nor a keyword
 
 
 def _substituted(node: cst.BaseExpression, names: dict[str, cst.BaseExpression]) -> cst.BaseExpression:
@@ -499,7 +496,9 @@ def frame_apply(call: PandasCall, ctx: RuleContext) -> Value:
     for name, column in fields.items():
         value = replace(column_of(frame, column), element=True)
         if all_numbers and "float" in kinds and value.dtype in ("int", "bool"):
-            value = replace(value, dtype="float")  # the row is one float Series
+            # the row is one float Series: str(row["n"]) is "3.0", as the cast writes it
+            value = replace(value, code=value.code.method("cast", emit.atom("pl.Float64")),
+                            dtype="float")
         bindings[name] = value
     result = _checked(ctx.evaluate(body, bindings), ctx)
     base = Column(emit.pl("lit", None), frame=frame, name=None)
@@ -538,16 +537,9 @@ class _RowFields(cst.CSTTransformer):
 
     def leave_Attribute(self, original: cst.Attribute, updated: cst.Attribute) -> cst.BaseExpression:
         if isinstance(original.value, cst.Name) and original.value.value == self.param \
-                and original.attr.value not in _SERIES_ATTRIBUTES:
+                and original.attr.value not in pandas_names.SERIES:  # row.name, row.sum()
             return self._field(original.attr.value)
         return updated
-
-
-# attributes of a pandas Series that are not columns when read from a row
-_SERIES_ATTRIBUTES = frozenset({"name", "index", "values", "dtype", "shape", "size", "empty",
-                                "get", "loc", "iloc", "at", "iat", "sum", "mean", "max", "min",
-                                "isna", "notna", "isnull", "notnull", "any", "all", "count",
-                                "to_dict", "to_list", "tolist", "items", "keys", "astype"})
 
 
 def _uses_name(node: cst.CSTNode, name: str) -> bool:

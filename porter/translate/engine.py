@@ -391,7 +391,7 @@ class _Walker:
     def note_parents(self, code: Code, env: dict[str, Value]) -> None:
         """Remember which named frames the plan bound by this statement reads."""
         parents = self.services.frame_parents.setdefault(self.statement_key, set())
-        for name in _names_in(code.text):
+        for name in _names_read(code.text):
             value = env.get(name)
             if isinstance(value, Frame) and value.binding is not None:
                 parents.add(value.binding)
@@ -409,7 +409,8 @@ class _Walker:
         """A frame that an earlier statement kept on pandas comes back to Polars
         (`pl.from_pandas`) at the first statement porter can rewrite whole with it, so that one
         TODO does not keep the rest of the script on pandas."""
-        names = [n for n in _names_read(stmt) if isinstance(env.get(n), PandasValue)
+        names = [n for n in _names_read(self.services.code_for(stmt))
+                 if isinstance(env.get(n), PandasValue)
                  and env[n].frame is not None]  # type: ignore[union-attr]
         if not names:
             return None
@@ -859,17 +860,6 @@ def plans_to_collect(consumers: dict[int, set[tuple[int, int]]],
     return frozenset(collected)
 
 
-def _names_in(text: str) -> set[str]:
-    try:
-        tree = ast.parse(text.strip(), mode="eval")
-    except SyntaxError:
-        try:
-            tree = ast.parse(text.strip())
-        except SyntaxError:
-            return set()
-    return {node.id for node in ast.walk(tree) if isinstance(node, ast.Name)}
-
-
 def _same_code(a: str, b: str) -> bool:
     """Whether two texts are the same code, laid out differently."""
     try:
@@ -887,10 +877,10 @@ def _after_loop(env: dict[str, Value], handed: dict[str, Frame]) -> dict[str, Va
     return env
 
 
-def _names_read(stmt: cst.CSTNode) -> list[str]:
-    """The names a statement reads, in order of first use."""
+def _names_read(text: str) -> list[str]:
+    """The names a piece of code reads, in order of first use."""
     try:
-        tree = ast.parse(cst.Module([]).code_for_node(stmt).strip())
+        tree = ast.parse(text.strip())
     except SyntaxError:
         return []
     names: list[str] = []
