@@ -18,7 +18,7 @@ from porter.emit.code import Code
 from porter.model import SiteDraft
 from porter.translate import handover, imports as import_edits
 from porter.translate.functions import discover_functions, function_definitions, learn_functions
-from porter.translate.writes import batch_writes
+from porter.translate.writes import batch_writes, is_sink_text
 from porter.translate.context import PandasCall, grouping_code
 from porter.translate.evaluate import Evaluator, Services
 from porter.translate.values import (
@@ -136,13 +136,17 @@ class _Walker:
         self.statement_key = 0  # the simple statement being rewritten
         self.current_small: cst.CSTNode = cst.Pass()
         self.loop_depth = 0
+        self.sink_run: int | None = None  # the execution a run of consecutive writes shares
 
     # blocks ---------------------------------------------------------------------------------
     def block(self, body: Any, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
         out: list[Any] = []
         for stmt in body:
+            if not isinstance(stmt, cst.SimpleStatementLine):
+                self.sink_run = None
             new, env = self.statement(stmt, env, unit, indent)
             out.extend(new)
+        self.sink_run = None
         if self.emit_code:
             out = batch_writes(out, body)
         return out, env
@@ -337,12 +341,20 @@ class _Walker:
         before = dict(env)
         self.statement_key = id(line)
         self.services.statement_lines = self.services.position(line)
+        run, self.sink_run = self.sink_run, None
         for small in line.body:
             text, new_sites = self.small(small, env, indent)
             texts.append(text)
             sites += new_sites
             if text is not None:
-                self.count_consumers(text, before, id(small))
+                execution: int = id(small)
+                if len(line.body) == 1 and is_sink_text(text):
+                    # consecutive writes run as one pl.collect_all (see writes.py); a comment
+                    # starts a new run
+                    comment = any(e.comment for e in line.leading_lines)
+                    execution = self.sink_run = \
+                        run if run is not None and not comment else id(small)
+                self.count_consumers(text, before, execution)
         self.record(tuple(sites))
         if not self.emit_code:  # an analysis pass only learns; the last pass writes
             return [line]
@@ -369,16 +381,22 @@ class _Walker:
         return new_lines
 
     def count_consumers(self, text: str, env: dict[str, Value], statement: int) -> None:
-        """Remember which named frames this statement computes (collects or writes)."""
+        """Remember which named frames this statement computes (collects or writes); `statement`
+        names the execution (writes batched together share one)."""
         if ".collect()" not in text and ".sink_" not in text:
             return
         try:
             tree = ast.parse(text)
         except SyntaxError:
             return
+        counted = _row_counts(tree)
         for node in ast.walk(tree):
             value = env.get(node.id) if isinstance(node, ast.Name) else None
             if isinstance(value, Frame) and value.binding is not None:
+                if node.id in counted and value.rows in self.services.file_rows:
+                    # only the rows of a file are counted: Polars counts them from the scan
+                    # without reading the columns, cheaper than keeping the frame
+                    continue
                 uses = self.services.consumers.setdefault(value.binding, set())
                 uses.add((statement, 0))
                 if self.loop_depth:  # runs once per iteration
@@ -829,9 +847,11 @@ def plans_to_collect(consumers: dict[int, set[tuple[int, int]]],
 
     A statement that computes a frame (a sink, a print, a scalar, a hand-over to pandas) runs
     the plan of every frame it reads, and of every frame those were made from, back to the
-    last one that was collected. A binding is collected when its plan would otherwise run two
-    or more times: its own executions, plus one for each frame made from it that is itself
-    collected, plus the executions of each that is not. A chain used once stays lazy up to its
+    last one that was collected. A binding is collected when its plan would otherwise run at
+    two or more points: its own executions, the binding of each frame made from it that is
+    itself collected, and the executions of each that is not. One execution that reads a plan
+    twice (a join of two aggregates of one frame, or writes batched into one pl.collect_all)
+    computes it once: Polars finds the shared part. A chain used once stays lazy up to its
     sink; a frame shared by several outputs is computed once, at the last point they share.
     """
     children: dict[int, set[int]] = {}
@@ -839,24 +859,27 @@ def plans_to_collect(consumers: dict[int, set[tuple[int, int]]],
         for owner in owners:
             if owner != child:
                 children.setdefault(owner, set()).add(child)
-    runs: dict[int, int] = {}
+    runs: dict[int, frozenset[object]] = {}
     collected: set[int] = set()
 
-    def count(binding: int, path: frozenset[int]) -> int:
+    def executions(binding: int, path: frozenset[int]) -> frozenset[object]:
         if binding in runs:
             return runs[binding]
-        total = len(consumers.get(binding, ()))
+        points: set[object] = set(consumers.get(binding, ()))
         for child in children.get(binding, ()):
             if child in path:
                 continue  # a loop that rebinds the name: counted through its executions
-            total += 1 if count(child, path | {child}) >= 2 else runs[child]
-        runs[binding] = total
-        if total >= 2:
+            below = executions(child, path | {child})
+            # a frame that is collected runs this plan once, where it is made; one that is
+            # not runs it wherever it runs (one plan reading it twice computes it once)
+            points |= {("made", child)} if len(below) >= 2 else below
+        runs[binding] = frozenset(points)
+        if len(points) >= 2:
             collected.add(binding)
-        return total
+        return runs[binding]
 
     for binding in list(parents) + list(consumers):
-        count(binding, frozenset({binding}))
+        executions(binding, frozenset({binding}))
     return frozenset(collected)
 
 
@@ -875,6 +898,24 @@ def _after_loop(env: dict[str, Value], handed: dict[str, Frame]) -> dict[str, Va
         if isinstance(env.get(name), PandasValue):
             env[name] = PandasValue(emit.atom(name), frame=_after_change(name, frame, None))
     return env
+
+
+def _row_counts(tree: ast.AST) -> set[str]:
+    """The names this code reads only to count their rows (`x.select(pl.len()).collect()`),
+    or for their columns (`x.collect_schema()`)."""
+    counts: dict[str, int] = {}
+    for node in ast.walk(tree):
+        if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
+                and isinstance(node.func.value, ast.Name) and not node.keywords \
+                and (node.func.attr == "collect_schema" and not node.args
+                     or node.func.attr == "select" and len(node.args) == 1
+                     and ast.unparse(node.args[0]) == "pl.len()"):
+            counts[node.func.value.id] = counts.get(node.func.value.id, 0) + 1
+    uses: dict[str, int] = {}
+    for node in ast.walk(tree):
+        if isinstance(node, ast.Name):
+            uses[node.id] = uses.get(node.id, 0) + 1
+    return {name for name, n in counts.items() if uses.get(name) == n}
 
 
 def _names_read(text: str) -> list[str]:

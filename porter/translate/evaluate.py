@@ -71,6 +71,8 @@ class Services:
     datetimes_possible: bool = True
     # statements that compute each named frame's data, by the assignment that named it
     consumers: dict[int, set[tuple[int, int]]] = field(default_factory=dict)
+    # the rows of frames read from files: counting them again needs no more than the scan
+    file_rows: set[int] = field(default_factory=set)
     # the bindings whose frames each binding's plan reads (`b = a.filter(...)`: a -> b)
     frame_parents: dict[int, set[int]] = field(default_factory=dict)
     # the bindings collected where they are made: plans that would otherwise run more than once
@@ -490,6 +492,9 @@ class Evaluator:
             if ctx.reasons:
                 reason += f" ({'; '.join(ctx.reasons)})"
             return self.todo(key, call, node, reason, entry=entry, suggestion=result.code.text)
+        if key.startswith("pd.read_") and isinstance(result, Frame) and "n_rows" not in call.kwargs \
+                and "nrows" not in call.kwargs:
+            self.services.file_rows.add(result.rows)  # Polars counts them from the file alone
         line, end_line = self.services.position(node)
         message = "; ".join(ctx.reasons) if ctx.reasons else _first_sentence(entry.notes)
         if ctx.todo_note is not None:

@@ -24,6 +24,15 @@ def _sink_call(stmt: Any) -> cst.Call | None:
     return None
 
 
+def is_sink_text(text: str) -> bool:
+    """Whether code porter wrote is one write that batch_writes would batch with its
+    neighbours."""
+    try:
+        return _sink_call(cst.parse_statement(text.strip() + "\n")) is not None
+    except cst.ParserSyntaxError:
+        return False
+
+
 def batch_writes(out: list[Any], original: Any) -> list[Any]:
     """Consecutive writes porter made become one pl.collect_all, so plans they share run once.
 

@@ -28,8 +28,6 @@ sales = (
         infer_schema_length=None,
     )
     .with_columns(pl.col("sale_date").str.to_datetime(time_unit="us"))
-    .collect()
-    .lazy()
 )
 print((sales.select(pl.len()).collect().item(), len(sales.collect_schema())))
 
@@ -80,11 +78,10 @@ products_per_shop = (
     .sort("shop")
 )
 products_per_shop = products_per_shop.rename({"product": "products_sold"})
-week = (
-    sales
-    .sort(["shop", "sale_date", "product"], nulls_last=True, maintain_order=True)
-    .collect()
-    .lazy()
+week = sales.sort(
+    ["shop", "sale_date", "product"],
+    nulls_last=True,
+    maintain_order=True,
 )
 opening = (
     week

@@ -25,14 +25,10 @@ PANDAS_CSV_DATETIMES = (
 SENSORS = ["temp_c", "humidity_pct", "soil_moisture", "co2_ppm"]
 HOT_LIMIT = {"tropical": 30, "arid": 34, "fern gully": 24}
 
-log = (
-    pl.scan_csv(
-        "data/sensors.csv",
-        null_values=PANDAS_NA_VALUES + ["err"],
-        infer_schema_length=None,
-    )
-    .collect()
-    .lazy()
+log = pl.scan_csv(
+    "data/sensors.csv",
+    null_values=PANDAS_NA_VALUES + ["err"],
+    infer_schema_length=None,
 )
 print(log.select(pl.len()).collect().item())
 

@@ -32,8 +32,6 @@ weighings = (
         infer_schema_length=None,
     )
     .with_columns(pl.col("pick_date").str.to_datetime(time_unit="us"))
-    .collect()
-    .lazy()
 )
 growers = pl.scan_csv(
     "data/growers.csv",

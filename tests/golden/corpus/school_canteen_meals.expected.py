@@ -15,14 +15,10 @@ PANDAS_NA_VALUES = [
 
 MEAL_PRICE = {"standard": 3.40, "reduced": 1.10}
 
-meals = (
-    pl.scan_csv(
-        "data/meals.csv",
-        null_values=PANDAS_NA_VALUES + ["none"],
-        infer_schema_length=None,
-    )
-    .collect()
-    .lazy()
+meals = pl.scan_csv(
+    "data/meals.csv",
+    null_values=PANDAS_NA_VALUES + ["none"],
+    infer_schema_length=None,
 )
 print(meals.select(pl.len()).collect().item())
 
