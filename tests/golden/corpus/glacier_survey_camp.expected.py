@@ -1,0 +1,177 @@
+"""Glacier survey camp: ablation stakes, melt per stake and per zone, and readings that look misread.
+
+Each stake is read every day or two: the centimetres of stake standing out of the ice grow as
+the ice melts. 'buried' means snow hid the stake; 'trace' of snow counts as none. A reading is
+suspicious when it jumps away from the median of the last three readings.
+"""
+import numpy as np
+import pandas as pd
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+JUMP_CM = 20.0
+
+
+def jump_from_median(window):
+    # distance of the newest reading from the median of the window
+    return abs(window[-1] - np.nanmedian(window))
+
+
+def load_readings(path):
+    readings = pl.scan_csv(
+        path,
+        null_values=PANDAS_NA_VALUES + ["buried", "trace"],
+        infer_schema_length=None,
+    )
+    readings = readings.with_columns(
+        read_on=pl.col("read_on").str.to_datetime("%Y-%m-%d"),
+    )
+    readings = readings.with_columns(stake=pl.col("stake").str.to_uppercase())
+    readings = readings.with_columns(observer=pl.col("observer").str.to_titlecase())
+    readings = readings.with_columns(snow_cm=pl.col("snow_cm").fill_null(0))
+    readings = readings.unique(keep="first", maintain_order=True)
+    return readings
+
+
+def load_stakes(path):
+    stakes = (
+        pl.scan_csv(path, null_values=PANDAS_NA_VALUES, infer_schema_length=None)
+        .with_columns(pl.col("installed").str.to_datetime(time_unit="us"))
+    )
+    stakes = stakes.with_columns(
+        zone=pl.col("zone").str.strip_chars().str.to_lowercase(),
+    )
+    return stakes
+
+
+def main():
+    readings = load_readings("data/stake_readings.csv")
+    stakes = load_stakes("data/stakes.csv")
+    readings = readings.sort(["stake", "read_on"], nulls_last=True, maintain_order=True)
+
+    # rolling over the whole sorted book -- the first rows of a stake still see the last of the previous one
+    readings = readings.collect().to_pandas()
+    # TODO(porter): frame.getitem.column: kept on pandas with the statement it is in
+    # TODO(porter): series.rolling: rolling_mean / rolling_sum(window_size=n) on the column; min_periods
+    #   is min_samples; time windows are rolling_*_by with min_samples=1
+    # TODO(porter): frame.setitem: a Series computed by pandas whose rows porter cannot match to the
+    #   frame's (pandas aligns it on the index): the statement stays pandas
+    readings["jump"] = readings["exposed_cm"].rolling(3, min_periods=2).apply(jump_from_median, raw=True)
+    readings = pl.from_pandas(readings).lazy()
+    readings = (
+        readings
+        .with_columns(suspicious=(pl.col("jump") > JUMP_CM).fill_null(False))
+        .collect()
+        .lazy()
+    )
+
+    suspicious = readings.filter(pl.col("suspicious"))
+    suspicious = suspicious.with_columns(jump=pl.col("jump").round(1))
+    suspicious = (
+        suspicious
+        .select(
+            "reading_id",
+            "stake",
+            "read_on",
+            "exposed_cm",
+            "jump",
+            "observer",
+            "note",
+        )
+        .collect()
+        .lazy()
+    )
+    suspicious.with_columns(PANDAS_CSV_DATETIMES).sink_csv("suspicious_readings.csv")
+
+    good = readings.filter(~pl.col("suspicious") & pl.col("exposed_cm").is_not_null())
+    per_stake = (
+        good
+        .drop_nulls("stake")
+        .group_by("stake")
+        .agg(
+            pl.col("read_on").min().alias("first_day"),
+            pl.col("read_on").max().alias("last_day"),
+            pl.col("exposed_cm").min().alias("low_cm"),
+            pl.col("exposed_cm").max().alias("high_cm"),
+            pl.col("reading_id").count().cast(pl.Int64).alias("readings"),
+            pl.col("snow_cm").mean().alias("snow_cm"),
+        )
+        .sort("stake")
+    )
+    per_stake = per_stake.collect().to_pandas()
+    # TODO(porter): frame.getitem.column: kept on pandas with the statement it is in
+    # TODO(porter): series.arith: kept on pandas with the statement it is in
+    # TODO(porter): pd.Timedelta: porter has no rule for this API yet
+    # TODO(porter): frame.setitem: a Series computed by pandas whose rows porter cannot match to the
+    #   frame's (pandas aligns it on the index): the statement stays pandas
+    per_stake["days"] = (per_stake["last_day"] - per_stake["first_day"]) / pd.Timedelta(days=1)
+    per_stake = pl.from_pandas(per_stake).lazy()
+    per_stake = per_stake.with_columns(
+        cm_per_day=((pl.col("high_cm") - pl.col("low_cm")) / pl.col("days")).fill_nan(None),
+    )
+    per_stake = (
+        per_stake
+        .rename(
+            lambda c, other=stakes.collect_schema().names(): c + "_x" if c in other and c not in ("stake",) else c,
+        )
+        .join(
+            stakes.rename(
+                lambda c, other=per_stake.collect_schema().names(): c + "_y" if c in other and c not in ("stake",) else c,
+            ),
+            on="stake",
+            how="inner",
+            nulls_equal=True,
+            maintain_order="left_right",
+        )
+    )
+    per_stake = per_stake.with_columns(cm_per_day=pl.col("cm_per_day").round(2))
+    per_stake = per_stake.with_columns(snow_cm=pl.col("snow_cm").round(2))
+    per_stake = per_stake.sort(
+        ["zone", "elevation_m"],
+        nulls_last=True,
+        maintain_order=True,
+    )
+    per_stake.with_columns(PANDAS_CSV_DATETIMES).sink_csv("stake_melt.csv")
+
+    per_zone = per_stake.drop_nulls("zone").group_by("zone")
+    per_zone = (
+        per_zone
+        .agg(
+            pl.col("stake").drop_nulls().n_unique().cast(pl.Int64).alias("stakes"),
+            pl.col("cm_per_day").mean().alias("cm_per_day"),
+            pl.col("elevation_m").max().alias("top_m"),
+        )
+        .sort("zone")
+    )
+    per_zone = (
+        per_zone
+        .sort("cm_per_day", descending=True, nulls_last=True, maintain_order=True)
+        .collect()
+        .lazy()
+    )
+    per_zone.sink_parquet("zone_melt.parquet")
+    print(per_zone.collect())
+    print(
+        suspicious.select(pl.len()).collect().item(),
+        "suspicious readings;",
+        readings.select(pl.col("exposed_cm").is_null().sum()).collect().item(),
+        "missing",
+    )
+
+
+main()

@@ -1,0 +1,175 @@
+"""Lighthouse keepers' log: lamp oil burnt per station, the foggy watches, and who kept them.
+
+Three watches a night (dusk, midnight, dawn). The oil tank is dipped at every watch, but
+keepers skip it often ('not read', '--' or blank); the gaps are filled by straight-line
+interpolation between readings. Visibility is 'fog' when the keeper could not see the buoy.
+"""
+import numpy as np
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+WATCHES = {'dusk': 1, 'midnight': 2, 'dawn': 3}
+FOG_NM = 2   # below two nautical miles the horn goes on
+
+
+def tidy_names(s):
+    # keepers type their own names, in any case, sometimes with a leading space
+    return s.str.strip().str.title()
+
+
+log = pl.scan_csv(
+    "data/watch_log.csv",
+    null_values=PANDAS_NA_VALUES + ["not read", "--", "fog"],
+    infer_schema_length=None,
+)
+stations = pl.scan_csv(
+    'data/stations.csv',
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
+)
+print("raw lines:", log.select(pl.len()).collect().item())
+
+log = log.unique(keep="first", maintain_order=True)
+log = (
+    log
+    .with_columns(station=pl.col("station").str.strip_chars().str.to_uppercase())
+    .collect()
+    .lazy()
+)
+# TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
+#   pandas with .collect().to_pandas(); port that code to take a Polars frame
+log = log.with_columns(
+    keeper=pl.lit(
+        tidy_names(
+            log.select(pl.col('keeper').alias("keeper")).collect().to_series().to_pandas(),
+        ),
+    ),
+)
+log = log.with_columns(
+    watch_no=pl.col("watch").str.to_lowercase().replace_strict(WATCHES, default=None),
+)
+log = log.with_columns(
+    wind_bft=pl.col("wind_bft").fill_null(0),
+    remarks=pl.col("remarks").fill_null(pl.lit("")),
+)
+
+# order of the book: station, night, watch
+log = (
+    log
+    .sort(
+        ["station", "watch_date", "watch_no", "log_id"],
+        nulls_last=True,
+        maintain_order=True,
+    )
+    .collect()
+    .lazy()
+)
+
+# fill the tank dips the keepers skipped
+# TODO(porter): series.interpolate: porter has no rule for this API yet
+# TODO(porter): frame.setitem: a Series computed by pandas, row for row from this frame, is put back
+#   by position; port the computation to an expression
+log = log.with_columns(
+    oil_est=pl.Series(
+        log.select(pl.col("oil_litres")).collect().to_series().to_pandas().interpolate(),
+        nan_to_null=True,
+    ),
+)
+log = log.with_columns(oil_est=pl.col("oil_est").round(1))
+log = log.with_columns(estimated=pl.col("oil_litres").is_null()).collect().lazy()
+
+# --- per station: oil range over the fortnight against the tank size
+stations = stations.unique("code", keep="first", maintain_order=True)
+per_station = (
+    log
+    .drop_nulls("station")
+    .group_by("station")
+    .agg(
+        pl.col("log_id").count().cast(pl.Int64).alias("watches"),
+        pl.col("oil_est").max().alias("high"),
+        pl.col("oil_est").min().alias("low"),
+        pl.col("estimated").sum().alias("estimated"),
+        pl.col("wind_bft").mean().alias("mean_wind"),
+    )
+    .sort("station")
+)
+per_station = (
+    per_station
+    .rename(
+        lambda c, other=stations.collect_schema().names(): c + "_x" if c in other and c not in ("station",) else c,
+    )
+    .join(
+        stations.rename(
+            lambda c, other=per_station.collect_schema().names(): c + "_y" if c in other and c not in ("code",) else c,
+        ),
+        left_on="station",
+        right_on="code",
+        how="left",
+        coalesce=False,
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+)
+per_station = per_station.with_columns(
+    burn_share=((pl.col("high") - pl.col("low")) / pl.col("tank_litres")).fill_nan(
+        None,
+    ),
+)
+per_station = per_station.with_columns(burn_share=pl.col("burn_share").round(3))
+per_station = per_station.with_columns(mean_wind=pl.col('mean_wind').round(2))
+per_station = (
+    per_station
+    .drop("code")
+    .sort("burn_share", descending=True, nulls_last=True, maintain_order=True)
+)
+per_station.sink_csv("station_oil.csv")
+
+# --- foggy watches, for the harbour master
+foggy = log.filter(
+    (pl.col("visibility_nm") < FOG_NM) | pl.col("visibility_nm").is_null(),
+)
+foggy = foggy.select(
+    "log_id",
+    "station",
+    "watch_date",
+    "watch",
+    "keeper",
+    "visibility_nm",
+    "oil_est",
+    "remarks",
+)
+foggy = (
+    foggy
+    .sort(["watch_date", "station", "log_id"], nulls_last=True, maintain_order=True)
+    .collect()
+    .lazy()
+)
+foggy.sink_csv("data/foggy_watches.csv")
+
+# --- who kept the foggy watches
+by_keeper = (
+    foggy
+    .drop_nulls(["station", "keeper"])
+    .group_by(["station", "keeper"])
+    .agg(pl.len().cast(pl.Int64).alias("size"))
+    .sort(["station", "keeper"])
+    .select(pl.col("station"), pl.col("keeper"), pl.col("size").alias("fog_watches"))
+)
+by_keeper = by_keeper.sort(
+    ["fog_watches", "station", "keeper"],
+    descending=[True, False, False],
+    nulls_last=True,
+    maintain_order=True,
+)
+print(by_keeper.head(8).collect())
+print(
+    "estimated dips:",
+    int(log.select(pl.col("estimated").sum()).collect().item()),
+    "of",
+    log.select(pl.len()).collect().item(),
+)

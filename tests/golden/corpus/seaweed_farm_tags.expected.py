@@ -1,0 +1,144 @@
+"""Seaweed farm harvest tags: yield per longline, per species and week, and the bags whose tag can't be read.
+
+Every net bag landed gets a tag like 'L07-B/W12' (longline 7, bay B, ISO week 12), written by
+hand: lower case, a missing leading zero, no week, or torn off altogether. Dry weight comes
+from the drying shed later; '?' or blank when the bag went to the fresh market.
+"""
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+TAG_PATTERN = r"^\s*[Ll](\d+)-([A-Ca-c])(?:/[Ww](\d+))?\s*$"
+
+tags = (
+    pl.scan_csv(
+        "data/harvest_tags.csv",
+        null_values=PANDAS_NA_VALUES + ["?"],
+        infer_schema_length=None,
+    )
+    .with_columns(pl.col("landed_on").str.to_datetime(time_unit="us"))
+)
+lines = pl.scan_csv(
+    "data/lines.csv",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
+)
+
+tags = (
+    tags
+    .unique("harvest_id", keep="first", maintain_order=True)
+    .with_columns(species=pl.col("species").str.strip_chars().str.to_lowercase())
+)
+tags = (
+    tags
+    .with_columns(harvester=pl.col("harvester").str.strip_chars())
+    .collect()
+    .lazy()
+)
+
+# split the hand-written tag into its parts
+# TODO(porter): series.str.extract: one group: pl.col(c).str.extract(pat, 1); several:
+#   str.extract_groups(pat).struct.unnest() and rename the fields '1', '2' to pandas' 0, 1 (check
+#   the pattern for Python-only regex features)
+parts = tags.select(pl.col("tag")).collect().to_series().to_pandas().str.extract(
+    TAG_PATTERN,
+)
+tags = tags.collect().to_pandas()
+# TODO(porter): frame.setitem: a Series computed by pandas whose rows porter cannot match to the
+#   frame's (pandas aligns it on the index): the statement stays pandas
+tags["line"] = "L" + parts[0].str.zfill(2)
+tags["bay"] = parts[1].str.upper()
+tags["week"] = parts[2].astype(float)
+
+tags = pl.from_pandas(tags).lazy()
+unread = tags.filter(pl.col("line").is_null())
+tags = tags.filter(pl.col("line").is_not_null())
+
+tags = (
+    tags
+    .with_columns(dry_ratio=(pl.col("dry_kg") / pl.col("wet_kg")).fill_nan(None))
+    .collect()
+    .lazy()
+)   # 0 kg wet: empty bag, still tagged
+
+# the re-rigged line 7 is in the lines sheet twice: keep the newest (last) row
+lines = lines.unique("line", keep="last", maintain_order=True)
+per_line = (
+    tags
+    .drop_nulls("line")
+    .group_by("line")
+    .agg(
+        pl.col("harvest_id").count().cast(pl.Int64).alias("bags"),
+        pl.col("wet_kg").sum().alias("wet_kg"),
+        pl.col("dry_kg").sum().alias("dry_kg"),
+        pl.col("bay").drop_nulls().n_unique().cast(pl.Int64).alias("bays"),
+    )
+    .sort("line")
+    .rename(
+        lambda c, other=lines.collect_schema().names(): c + "_x" if c in other and c not in ("line",) else c,
+    )
+    .join(
+        lines.rename(
+            lambda c, other=tags.drop_nulls("line").group_by("line").agg(pl.col("harvest_id").count().cast(pl.Int64).alias("bags"), pl.col("wet_kg").sum().alias("wet_kg"), pl.col("dry_kg").sum().alias("dry_kg"), pl.col("bay").drop_nulls().n_unique().cast(pl.Int64).alias("bays")).sort("line").collect_schema().names(): c + "_y" if c in other and c not in ("line",) else c,
+        ),
+        on="line",
+        how="full",
+        coalesce=True,
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+    .sort("line", nulls_last=True, maintain_order=True)
+    .with_columns(wet_per_m=(pl.col("wet_kg") / pl.col("rope_m")).fill_nan(None))
+    .sort(["site", "line"], nulls_last=True, maintain_order=True)
+)
+per_line = per_line.with_columns(wet_per_m=pl.col("wet_per_m").round(3))
+per_line = per_line.with_columns(dry_kg=pl.col("dry_kg").round(2))
+per_line.with_columns(PANDAS_CSV_DATETIMES).sink_csv("line_yield.csv")
+
+weekly = (
+    tags
+    .filter(pl.col("week").is_not_null())
+    .drop_nulls(["species", "week"])
+    .group_by(["species", "week"])
+    .agg(
+        pl.len().cast(pl.Int64).alias("bags"),
+        pl.col("wet_kg").sum().alias("wet_kg"),
+        pl.col("dry_ratio").mean().alias("mean_ratio"),
+    )
+    .sort(["species", "week"])
+)
+weekly = weekly.with_columns(mean_ratio=pl.col("mean_ratio").round(4))
+weekly = weekly.sort(["species", "week"], nulls_last=True, maintain_order=True)
+weekly.with_columns(PANDAS_CSV_DATETIMES).sink_csv("species_weeks.csv")
+
+unread = (
+    unread
+    .select("harvest_id", "tag", "species", "wet_kg", "harvester", "landed_on")
+    .sort(["landed_on", "harvest_id"], nulls_last=True, maintain_order=True)
+    .collect()
+    .lazy()
+)
+unread.with_columns(PANDAS_CSV_DATETIMES).sink_csv("data/unread_tags.csv")
+print(unread.select(pl.len()).collect().item(), "bags without a readable tag")
+print(
+    tags.drop_nulls("harvester")
+    .group_by("harvester")
+    .agg(pl.col("wet_kg").sum())
+    .sort("harvester")
+    .sort(pl.col("wet_kg"), descending=True, nulls_last=True, maintain_order=True)
+    .collect(),
+)
