@@ -29,7 +29,8 @@ busy = []
 def record(frames):
     if not busy:  # a sink may execute through collect: one execution, counted once
         for frame in frames:
-            if frame.explain().startswith("FAST COUNT"):
+            plan = frame.explain()
+            if "FAST COUNT" in plan and "SCAN [" not in plan:
                 continue  # counting a file's rows reads no columns (len(df) of a plain read)
             for path in set(re.findall(r"SCAN \[([^\]]+)\]", frame.explain(optimized=False))):
                 scans[path] += 1

@@ -173,7 +173,7 @@ def test_ports(source: str, expected: str) -> None:
 UNKNOWN_COLUMNS = [
     pytest.param(
         'result = data.merge(right, on="k")',
-        '''data.rename(lambda c, other=right.collect_schema().names(): c + "_x" if c in other and c not in ("k",) else c)
+        '''data.rename(lambda c: c + "_x" if c in ("rv",) else c)
                .join(right.rename(lambda c, other=data.collect_schema().names(): c + "_y" if c in other and c not in ("k",) else c),
                      on="k", how="inner", nulls_equal=True, maintain_order="left_right")''',
         id="default suffixes: the shared columns are found from the schemas"),
@@ -199,6 +199,12 @@ def test_ports_with_unknown_columns(source: str, expected: str) -> None:
                  id="right join, empty left suffix"),
     pytest.param('result = data.merge(extra, left_on="w", right_on="k2", how="outer")',
                  id="outer join on differently named keys"),
+    pytest.param('result = data.merge(known, on="k")',
+                 id="the right side's columns are known: the left renames from a tuple"),
+    pytest.param('result = known.merge(data, on="k", suffixes=("_a", "_b"))',
+                 id="the left side's columns are known: the right renames from a tuple"),
+    pytest.param('result = data.merge(pd.DataFrame({"k": ["a", None], "z": [1, 2]}), on="k")',
+                 id="known columns that clash with none"),
 ])
 def test_unknown_columns_match_pandas(merge: str, tmp_path, monkeypatch) -> None:
     # pandas is the reference: the frames are read from CSV files, so porter does not know
@@ -210,6 +216,7 @@ def test_unknown_columns_match_pandas(merge: str, tmp_path, monkeypatch) -> None
         import pandas as pd
         data = pd.read_csv("data.csv")
         extra = pd.read_csv("extra.csv")
+        known = pd.DataFrame({"k": ["a", "b", None], "v": [0.5, 1.5, 2.5], "x": ["p", "q", "r"]})
         ''' + merge + "\n")
 
 

@@ -216,15 +216,35 @@ def _split_call(text: str, prefix: str, suffix: str) -> str | None:
     if parts is None:
         return None
     func, args = parts
+    items = _list_items(args[0]) if len(args) == 1 else None
+    if items is not None:  # f([a, b]): the brackets hug, one item per line
+        lines = [f"{prefix}{func}(["]
+        for item in items:
+            lines += _split_argument(item, "    ", LINE_LENGTH, min_steps=1)
+        return "\n".join([*lines, f"]){suffix}"])
     lines = [f"{prefix}{func}("]
     for arg in args:
         lines += _split_argument(arg, "    ", LINE_LENGTH)
     return "\n".join([*lines, f"){suffix}"])
 
 
-def _split_argument(arg: str, indent: str, width: int) -> list[str]:
+def _list_items(arg: str) -> list[str] | None:
+    """The items of a list literal written as one positional argument; None otherwise."""
+    import libcst as cst
+
+    parsed = _one_argument(arg)
+    if parsed is None or parsed.keyword is not None or not isinstance(parsed.value, cst.List) \
+            or not parsed.value.elements \
+            or not all(isinstance(e, cst.Element) for e in parsed.value.elements):
+        return None
+    module = cst.Module([])
+    return [module.code_for_node(e.value) for e in parsed.value.elements]
+
+
+def _split_argument(arg: str, indent: str, width: int, min_steps: int = 2) -> list[str]:
     """One argument of a call laid out one per line: a chain too long for its line is broken
-    before each step (inside the call's brackets no extra parentheses are needed)."""
+    before each step (inside the call's brackets no extra parentheses are needed); a chain
+    on a plain name (`df.select(...)`) is broken when it has `min_steps` calls after the first."""
     if len(indent) + len(arg) + 1 <= width:
         return [f"{indent}{arg},"]
     parsed = _one_argument(arg)
@@ -232,11 +252,26 @@ def _split_argument(arg: str, indent: str, width: int) -> list[str]:
     if entries is not None:
         head, items = entries
         return [f"{indent}{head}{{", *(f"{indent}    {item}," for item in items), f"{indent}}},"]
-    parts = _chain_parts(parsed) if parsed is not None else None
-    if parts is None:
+    if parsed is None:
         return [f"{indent}{arg},"]
+    keyword = f"{parsed.keyword.value}=" if parsed.keyword is not None else ""
+    parts = _chain_parts(parsed, min_steps)
+    if parts is None:
+        one = _chain_parts(parsed, 1)
+        if one is not None and len(indent) + len(one[0]) > width:
+            parts = one  # f([...]).collect(): the call before the step is what is too long
+    if parts is None:  # f(a, b) on a plain name (print, pl.concat): one argument per line
+        call = _call_parts("", arg[len(keyword):])
+        whole = _split_call(arg[len(keyword):], keyword, ",") \
+            if call is not None and "(" not in call[0] else None
+        return [indent + line for line in whole.splitlines()] if whole else [f"{indent}{arg},"]
     head, steps = parts
-    return [f"{indent}{head}", *(f"{indent}{step}" for step in steps[:-1]), f"{indent}{steps[-1]},"]
+    heads = [head]
+    if len(indent) + len(head) > width:
+        split = _split_call(head[len(keyword):], keyword, "")
+        heads = split.splitlines() if split else heads
+    return [*(indent + line for line in heads), *(f"{indent}{step}" for step in steps[:-1]),
+            f"{indent}{steps[-1]},"]
 
 
 def _one_argument(arg: str) -> Any:
@@ -263,7 +298,7 @@ def _dict_parts(arg: Any) -> tuple[str, list[str]] | None:
     return (f"{arg.keyword.value}=" if arg.keyword is not None else ""), items
 
 
-def _chain_parts(arg: Any) -> tuple[str, list[str]] | None:
+def _chain_parts(arg: Any, min_steps: int = 2) -> tuple[str, list[str]] | None:
     """`kw=a.b(x).c(y)` -> ("kw=a.b(x)", [".c(y)"]): the steps of a method chain that is
     called on another call (pl.when(...).then(...), pl.col(...).str.strip_chars().alias(...))."""
     import libcst as cst
@@ -286,7 +321,7 @@ def _chain_parts(arg: Any) -> tuple[str, list[str]] | None:
             break
         steps.insert(0, "".join(attributes) + step)
         node = inner
-    if len(steps) < 2:
+    if len(steps) < min_steps:
         return None
     head = module.code_for_node(node)
     if keyword is not None:

@@ -343,7 +343,7 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
     # pandas keeps the statistic names in an unnamed index, which reset_index() names "index"
     parts = [frame.code.method("select", emit.pl("lit", name).method("alias", "index"), expr)
              for name, expr in stats]
-    code = emit.Code("pl.concat([\n" + "".join(f"    {p.text},\n" for p in parts) + "])")
+    code = emit.pl("concat", parts)
     if frame.columns is not None and len(frame.dtypes) == len(frame.columns) and not any(
             t in ("int", "float") for _, t in frame.dtypes):
         raise Unsupported("describe of a frame without numeric columns describes text in pandas")

@@ -224,8 +224,11 @@ def _suffixes(args: PandasCall, lside: _Side, rside: _Side, coalesced: bool,
         if not coalesced:
             ctx.lower("a key column whose name the other frame also has keeps its name here; "
                       "pandas suffixes it too (run with --data to know the columns)", 0.9)
-        return (_renamed_at_run_time(lside, right_schema, tuple(lside.keys), lsuf),
-                _renamed_at_run_time(rside, left_schema, tuple(rside.keys), rsuf), None)
+        # a side whose columns porter knows is named as a tuple: no schema read, no plan copied
+        right_names = rside.columns if rside.columns is not None else right_schema.method("names")
+        left_names = lside.columns if lside.columns is not None else left_schema.method("names")
+        return (_renamed_at_run_time(lside, right_names, tuple(lside.keys), lsuf),
+                _renamed_at_run_time(rside, left_names, tuple(rside.keys), rsuf), None)
     shared = [c for c in lside.columns if c in rside.columns
               and not (coalesced and c in lside.keys)]
     if shared and not lsuf and not rsuf:
@@ -233,14 +236,22 @@ def _suffixes(args: PandasCall, lside: _Side, rside: _Side, coalesced: bool,
     return _renamed(lside, shared, lsuf), _renamed(rside, shared, rsuf), None
 
 
-def _renamed_at_run_time(side: _Side, other_schema: Code, keys: tuple[str, ...],
+def _renamed_at_run_time(side: _Side, other_names: Code | tuple[str, ...], keys: tuple[str, ...],
                          suffix: str) -> _Side:
+    """Rename this side's columns that the other side also has; `other_names` is the other
+    side's columns when porter knows them, else the code that reads them when the script runs."""
     if not suffix:
         return side
+    if isinstance(other_names, tuple):  # written out: no schema read, no plan copied
+        clash = tuple(c for c in other_names if c not in keys)
+        if not clash:
+            return side
+        rename = Code(f"lambda c: c + {emit.lit(suffix).text} if c in {emit.lit(clash).text} else c")
+        return _Side(side.code.method("rename", rename), None, {}, side.keys, side.index)
+    test = "c in other" + (f" and c not in {emit.lit(keys).text}" if keys else "")
     # the other schema is read when the lambda is made (a default argument): reading it inside
     # the rename would re-enter Polars' plan resolution
-    test = "c in other" + (f" and c not in {emit.lit(keys).text}" if keys else "")
-    rename = Code(f"lambda c, other={other_schema.text}.names(): "
+    rename = Code(f"lambda c, other={other_names.text}: "
                   f"c + {emit.lit(suffix).text} if {test} else c")
     return _Side(side.code.method("rename", rename), None, {}, side.keys, side.index)
 
@@ -349,6 +360,7 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
     union = _union(f.columns or () for f in frames)
     if columns is not None and columns != union:
         code = code.method("select", *columns)
+    ctx.stacked_rows = tuple(f.rows for f in frames)
     return Frame(code, columns=columns, dtypes=_concat_dtypes(frames, columns), index=index,
                  labels_intact=ignore_index or len(frames) == 1 and frames[0].labels_intact,
                  sites=tuple(s for f in frames for s in f.sites))

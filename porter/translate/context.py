@@ -114,6 +114,7 @@ class RuleContext:
     inside_from_pandas: bool = False  # the call is the argument of pl.from_pandas (porter's output)
     shown: bool = False  # the value is only printed or displayed (print(...), a bare cell value)
     function_def: Any = None  # name -> the script's own FunctionDef (defined once), or None
+    stacked_rows: tuple[int, ...] = ()  # the result's rows are these frames' rows, one after another
 
     def needs_review(self, reason: str) -> None:
         """Keep the rewrite but report the site as a TODO (for example a hand-back from pandas)."""

@@ -492,9 +492,10 @@ class Evaluator:
             if ctx.reasons:
                 reason += f" ({'; '.join(ctx.reasons)})"
             return self.todo(key, call, node, reason, entry=entry, suggestion=result.code.text)
-        if key.startswith("pd.read_") and isinstance(result, Frame) and "n_rows" not in call.kwargs \
-                and "nrows" not in call.kwargs:
-            self.services.file_rows.add(result.rows)  # Polars counts them from the file alone
+        if isinstance(result, Frame) and (
+                key.startswith("pd.read_") and "nrows" not in call.kwargs
+                or ctx.stacked_rows and set(ctx.stacked_rows) <= self.services.file_rows):
+            self.services.file_rows.add(result.rows)  # Polars counts them from the files alone
         line, end_line = self.services.position(node)
         message = "; ".join(ctx.reasons) if ctx.reasons else _first_sentence(entry.notes)
         if ctx.todo_note is not None:

@@ -19,13 +19,31 @@ summer = pl.scan_csv(
 season = pl.concat([spring, summer], how="diagonal_relaxed")
 season = season.unique(["hive", "date"], keep="last", maintain_order=True)
 stats = pl.concat([
-    season.select(pl.lit("count").alias("index"), pl.selectors.numeric().count().cast(pl.Float64)),
+    season.select(
+        pl.lit("count").alias("index"),
+        pl.selectors.numeric().count().cast(pl.Float64),
+    ),
     season.select(pl.lit("mean").alias("index"), pl.selectors.numeric().mean()),
     season.select(pl.lit("std").alias("index"), pl.selectors.numeric().std()),
-    season.select(pl.lit("min").alias("index"), pl.selectors.numeric().min().cast(pl.Float64)),
-    season.select(pl.lit("25%").alias("index"), pl.selectors.numeric().quantile(0.25, "linear")),
-    season.select(pl.lit("50%").alias("index"), pl.selectors.numeric().quantile(0.5, "linear")),
-    season.select(pl.lit("75%").alias("index"), pl.selectors.numeric().quantile(0.75, "linear")),
-    season.select(pl.lit("max").alias("index"), pl.selectors.numeric().max().cast(pl.Float64)),
+    season.select(
+        pl.lit("min").alias("index"),
+        pl.selectors.numeric().min().cast(pl.Float64),
+    ),
+    season.select(
+        pl.lit("25%").alias("index"),
+        pl.selectors.numeric().quantile(0.25, "linear"),
+    ),
+    season.select(
+        pl.lit("50%").alias("index"),
+        pl.selectors.numeric().quantile(0.5, "linear"),
+    ),
+    season.select(
+        pl.lit("75%").alias("index"),
+        pl.selectors.numeric().quantile(0.75, "linear"),
+    ),
+    season.select(
+        pl.lit("max").alias("index"),
+        pl.selectors.numeric().max().cast(pl.Float64),
+    ),
 ])
 stats.rename({"index": ""}).sink_csv("season_stats.csv")

@@ -15,11 +15,11 @@ huts = pl.scan_csv(
 beds = pl.LazyFrame({"hut": ["Alder", "Birch", "Cedar"], "beds": [12, 8, 20]})
 joined = (
     huts
-    .rename(
-        lambda c, other=beds.collect_schema().names(): c + "_x" if c in other and c not in ("hut",) else c,
-    )
+    .rename(lambda c: c + "_x" if c in ("beds",) else c)
     .join(
-        beds.rename(lambda c, other=huts.collect_schema().names(): c + "_y" if c in other and c not in ("hut",) else c),
+        beds.rename(
+            lambda c, other=huts.collect_schema().names(): c + "_y" if c in other and c not in ("hut",) else c,
+        ),
         on="hut",
         how="left",
         nulls_equal=True,

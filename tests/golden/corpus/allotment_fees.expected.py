@@ -76,11 +76,11 @@ def main():
     )
     ledger = (
         plots
-        .rename(
-            lambda c, other=paid.collect_schema().names(): c + "_x" if c in other and c not in ("plot_no",) else c,
-        )
+        .rename(lambda c: c + "_x" if c in ("plot", "paid", "payments") else c)
         .join(
-            paid.rename(lambda c, other=plots.collect_schema().names(): c + "_y" if c in other and c not in ("plot",) else c),
+            paid.rename(
+                lambda c, other=plots.collect_schema().names(): c + "_y" if c in other and c not in ("plot",) else c,
+            ),
             left_on="plot_no",
             right_on="plot",
             how="left",
@@ -102,16 +102,37 @@ def main():
         .lazy()
     )
     ledger.with_columns(PANDAS_CSV_DATETIMES).sink_csv("ledger.csv")
-    print(pl.concat([
-        ledger.select(pl.lit("count").alias("index"), pl.selectors.numeric().count().cast(pl.Float64)),
-        ledger.select(pl.lit("mean").alias("index"), pl.selectors.numeric().mean()),
-        ledger.select(pl.lit("std").alias("index"), pl.selectors.numeric().std()),
-        ledger.select(pl.lit("min").alias("index"), pl.selectors.numeric().min().cast(pl.Float64)),
-        ledger.select(pl.lit("25%").alias("index"), pl.selectors.numeric().quantile(0.25, "linear")),
-        ledger.select(pl.lit("50%").alias("index"), pl.selectors.numeric().quantile(0.5, "linear")),
-        ledger.select(pl.lit("75%").alias("index"), pl.selectors.numeric().quantile(0.75, "linear")),
-        ledger.select(pl.lit("max").alias("index"), pl.selectors.numeric().max().cast(pl.Float64)),
-    ]).collect())
+    print(
+        pl.concat([
+            ledger.select(
+                pl.lit("count").alias("index"),
+                pl.selectors.numeric().count().cast(pl.Float64),
+            ),
+            ledger.select(pl.lit("mean").alias("index"), pl.selectors.numeric().mean()),
+            ledger.select(pl.lit("std").alias("index"), pl.selectors.numeric().std()),
+            ledger.select(
+                pl.lit("min").alias("index"),
+                pl.selectors.numeric().min().cast(pl.Float64),
+            ),
+            ledger.select(
+                pl.lit("25%").alias("index"),
+                pl.selectors.numeric().quantile(0.25, "linear"),
+            ),
+            ledger.select(
+                pl.lit("50%").alias("index"),
+                pl.selectors.numeric().quantile(0.5, "linear"),
+            ),
+            ledger.select(
+                pl.lit("75%").alias("index"),
+                pl.selectors.numeric().quantile(0.75, "linear"),
+            ),
+            ledger.select(
+                pl.lit("max").alias("index"),
+                pl.selectors.numeric().max().cast(pl.Float64),
+            ),
+        ])
+        .collect(),
+    )
 
     sections = (
         ledger

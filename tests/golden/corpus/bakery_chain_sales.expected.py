@@ -115,7 +115,9 @@ first_last = (
         },
     )
     .join(
-        closing.rename({"sale_date": "sale_date_last", "product": "product_last", "units": "units_last"}),
+        closing.rename(
+            {"sale_date": "sale_date_last", "product": "product_last", "units": "units_last"},
+        ),
         on="shop",
         how="inner",
         nulls_equal=True,

@@ -48,7 +48,13 @@ def flag_status(batches):
 
 
 batches = flag_status(
-    tidy_codes(pl.scan_csv("data/batches.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)),
+    tidy_codes(
+        pl.scan_csv(
+            "data/batches.csv",
+            null_values=PANDAS_NA_VALUES,
+            infer_schema_length=None,
+        ),
+    ),
 )
 batches = batches.with_columns(shift=pl.col("shift").cast(pl.Categorical))
 batches = batches.with_columns(

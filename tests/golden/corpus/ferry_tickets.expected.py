@@ -85,7 +85,9 @@ per_route = (
         lambda c, other=routes.collect_schema().names(): c + "_x" if c in other and c not in ("route_code",) else c,
     )
     .join(
-        routes.rename(lambda c, other=per_route.collect_schema().names(): c + "_y" if c in other and c not in ("route_code",) else c),
+        routes.rename(
+            lambda c: c + "_y" if c in ("passengers", "revenue", "fare") else c,
+        ),
         on="route_code",
         how="left",
         nulls_equal=True,

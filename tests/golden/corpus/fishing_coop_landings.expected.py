@@ -46,7 +46,7 @@ def quota_status(landings, quota):
             lambda c, other=quota.collect_schema().names(): c + "_landed" if c in other and c not in ("boat", "species") else c,
         )
         .join(
-            quota.rename(lambda c, other=landed.collect_schema().names(): c + "_home" if c in other and c not in ("boat", "species") else c),
+            quota.rename(lambda c: c + "_home" if c in ("landed_kg", "port") else c),
             on=["boat", "species"],
             how="full",
             coalesce=True,
@@ -90,7 +90,11 @@ def boat_totals(landings):
 
 landings = (
     clean_landings(
-        pl.scan_csv("data/landings.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None),
+        pl.scan_csv(
+            "data/landings.csv",
+            null_values=PANDAS_NA_VALUES,
+            infer_schema_length=None,
+        ),
     )
     .collect()
     .lazy()

@@ -131,7 +131,7 @@ def main():
         )
         .join(
             stakes.rename(
-                lambda c, other=per_stake.collect_schema().names(): c + "_y" if c in other and c not in ("stake",) else c,
+                lambda c: c + "_y" if c in ("first_day", "last_day", "low_cm", "high_cm", "readings", "snow_cm", "days", "cm_per_day") else c,
             ),
             on="stake",
             how="inner",

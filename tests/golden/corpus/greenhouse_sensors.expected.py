@@ -102,13 +102,34 @@ co2_days = (
     .sort("house")
 )
 print(co2_days.collect())
-print(pl.concat([
-    daily.select(pl.lit("count").alias("index"), pl.selectors.numeric().count().cast(pl.Float64)),
-    daily.select(pl.lit("mean").alias("index"), pl.selectors.numeric().mean()),
-    daily.select(pl.lit("std").alias("index"), pl.selectors.numeric().std()),
-    daily.select(pl.lit("min").alias("index"), pl.selectors.numeric().min().cast(pl.Float64)),
-    daily.select(pl.lit("25%").alias("index"), pl.selectors.numeric().quantile(0.25, "linear")),
-    daily.select(pl.lit("50%").alias("index"), pl.selectors.numeric().quantile(0.5, "linear")),
-    daily.select(pl.lit("75%").alias("index"), pl.selectors.numeric().quantile(0.75, "linear")),
-    daily.select(pl.lit("max").alias("index"), pl.selectors.numeric().max().cast(pl.Float64)),
-]).collect())
+print(
+    pl.concat([
+        daily.select(
+            pl.lit("count").alias("index"),
+            pl.selectors.numeric().count().cast(pl.Float64),
+        ),
+        daily.select(pl.lit("mean").alias("index"), pl.selectors.numeric().mean()),
+        daily.select(pl.lit("std").alias("index"), pl.selectors.numeric().std()),
+        daily.select(
+            pl.lit("min").alias("index"),
+            pl.selectors.numeric().min().cast(pl.Float64),
+        ),
+        daily.select(
+            pl.lit("25%").alias("index"),
+            pl.selectors.numeric().quantile(0.25, "linear"),
+        ),
+        daily.select(
+            pl.lit("50%").alias("index"),
+            pl.selectors.numeric().quantile(0.5, "linear"),
+        ),
+        daily.select(
+            pl.lit("75%").alias("index"),
+            pl.selectors.numeric().quantile(0.75, "linear"),
+        ),
+        daily.select(
+            pl.lit("max").alias("index"),
+            pl.selectors.numeric().max().cast(pl.Float64),
+        ),
+    ])
+    .collect(),
+)

@@ -64,7 +64,9 @@ def main():
             lambda c, other=members.collect_schema().names(): c + "_x" if c in other and c not in ("member_id",) else c,
         )
         .join(
-            members.rename(lambda c, other=loans.collect_schema().names(): c + "_y" if c in other and c not in ("member_no",) else c),
+            members.rename(
+                lambda c, other=loans.collect_schema().names(): c + "_y" if c in other and c not in ("member_no",) else c,
+            ),
             left_on="member_id",
             right_on="member_no",
             how="inner",

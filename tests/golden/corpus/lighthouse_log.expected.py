@@ -105,7 +105,7 @@ per_station = (
     )
     .join(
         stations.rename(
-            lambda c, other=per_station.collect_schema().names(): c + "_y" if c in other and c not in ("code",) else c,
+            lambda c: c + "_y" if c in ("station", "watches", "high", "low", "estimated", "mean_wind") else c,
         ),
         left_on="station",
         right_on="code",
@@ -116,9 +116,7 @@ per_station = (
     )
 )
 per_station = per_station.with_columns(
-    burn_share=((pl.col("high") - pl.col("low")) / pl.col("tank_litres")).fill_nan(
-        None,
-    ),
+    burn_share=((pl.col("high") - pl.col("low")) / pl.col("tank_litres")).fill_nan(None),
 )
 per_station = per_station.with_columns(burn_share=pl.col("burn_share").round(3))
 per_station = per_station.with_columns(mean_wind=pl.col('mean_wind').round(2))

@@ -58,7 +58,7 @@ per_hut = (
         lambda c, other=huts.collect_schema().names(): c + "_x" if c in other and c not in ("hut",) else c,
     )
     .join(
-        huts.rename(lambda c, other=stays.drop_nulls("hut").group_by("hut").agg(pl.col("guest_nights").sum().alias("sum"), pl.col("guest_nights").mean().alias("mean")).sort("hut").rename({"sum": "guest_nights", "mean": "avg_per_stay"}).collect_schema().names(): c + "_y" if c in other and c not in ("hut",) else c),
+        huts.rename(lambda c: c + "_y" if c in ("guest_nights", "avg_per_stay") else c),
         on="hut",
         how="left",
         nulls_equal=True,
@@ -93,9 +93,7 @@ grid.with_columns(PANDAS_CSV_DATETIMES).sink_csv("hut_month_grid.csv")
 unpaid = (
     stays
     .filter(pl.col("paid_eur").is_null() & pl.col("half_board"))
-    .rename(
-        lambda c, other=huts.select("hut", "warden").collect_schema().names(): c + "_x" if c in other and c not in ("hut",) else c,
-    )
+    .rename(lambda c: c + "_x" if c in ("warden",) else c)
     .join(
         huts.select("hut", "warden").rename(lambda c, other=stays.filter(pl.col("paid_eur").is_null() & pl.col("half_board")).collect_schema().names(): c + "_y" if c in other and c not in ("hut",) else c),
         on="hut",

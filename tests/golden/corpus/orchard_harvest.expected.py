@@ -67,7 +67,9 @@ premium = (
         lambda c, other=growers.collect_schema().names(): c + "_x" if c in other and c not in ("grower_code",) else c,
     )
     .join(
-        growers.rename(lambda c, other=clean.filter((pl.col("kg") > 10) & (pl.col("grade") == "A")).drop_nulls(["grower_code", "variety"]).group_by(["grower_code", "variety"]).agg(pl.col("kg").sum().alias("total_kg"), pl.col("crate_count").sum().alias("crates"), pl.col("weigh_id").count().cast(pl.Int64).alias("weighings")).sort(["grower_code", "variety"]).collect_schema().names(): c + "_y" if c in other and c not in ("grower_code",) else c),
+        growers.rename(
+            lambda c: c + "_y" if c in ("variety", "total_kg", "crates", "weighings") else c,
+        ),
         on="grower_code",
         how="left",
         nulls_equal=True,
@@ -90,11 +92,11 @@ print(premium.head(5).collect())
 
 monthly = (
     clean
-    .rename(
-        lambda c, other=GRADE_PRICES.collect_schema().names(): c + "_x" if c in other and c not in ("grade",) else c,
-    )
+    .rename(lambda c: c + "_x" if c in ("price_per_kg",) else c)
     .join(
-        GRADE_PRICES.rename(lambda c, other=clean.collect_schema().names(): c + "_y" if c in other and c not in ("grade",) else c),
+        GRADE_PRICES.rename(
+            lambda c, other=clean.collect_schema().names(): c + "_y" if c in other and c not in ("grade",) else c,
+        ),
         on="grade",
         how="left",
         nulls_equal=True,

@@ -32,7 +32,7 @@ week2 = pl.scan_csv(
 print(week1.collect_schema().names())
 print(week2.collect_schema())
 
-drops = pl.concat([week1, week2], how="diagonal_relaxed").collect().lazy()
+drops = pl.concat([week1, week2], how="diagonal_relaxed")
 print((drops.select(pl.len()).collect().item(), len(drops.collect_schema())))
 
 drops = (

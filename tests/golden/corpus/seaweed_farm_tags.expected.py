@@ -93,7 +93,7 @@ per_line = (
     )
     .join(
         lines.rename(
-            lambda c, other=tags.drop_nulls("line").group_by("line").agg(pl.col("harvest_id").count().cast(pl.Int64).alias("bags"), pl.col("wet_kg").sum().alias("wet_kg"), pl.col("dry_kg").sum().alias("dry_kg"), pl.col("bay").drop_nulls().n_unique().cast(pl.Int64).alias("bays")).sort("line").collect_schema().names(): c + "_y" if c in other and c not in ("line",) else c,
+            lambda c: c + "_y" if c in ("bags", "wet_kg", "dry_kg", "bays") else c,
         ),
         on="line",
         how="full",

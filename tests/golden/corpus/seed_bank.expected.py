@@ -42,7 +42,9 @@ def attach_registry(tests, registry):
         storage=pl.col("storage").str.strip_chars().str.to_lowercase(),
     )
     return tests.join(
-        registry.rename(lambda c, other=tests.collect_schema().names(): c + "_registry" if c in other and c not in ("accession_id",) else c),
+        registry.rename(
+            lambda c, other=tests.collect_schema().names(): c + "_registry" if c in other and c not in ("accession_id",) else c,
+        ),
         left_on="accession",
         right_on="accession_id",
         how="left",
