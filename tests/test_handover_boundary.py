@@ -180,3 +180,16 @@ def test_a_frame_handed_over_in_an_elif_chain_is_checked_after_it():
             df["z"] = df["crates"] + 1
             result = df
         """, "result")
+
+
+def test_a_column_given_to_the_scripts_own_function_is_assigned_by_pandas():
+    # the function returns a Series: pandas aligns it on the index, pl.lit cannot hold it
+    text = both('''
+        import pandas as pd
+        def tidy(s):
+            return s.str.strip().str.title()
+        df = pd.read_csv("cargo.csv")
+        df["kind"] = tidy(df["kind"])
+        df = df[df["crates"] > 1]
+        ''', "df")
+    assert "pl.lit(tidy" not in text

@@ -141,3 +141,16 @@ def test_counting_the_rows_of_a_filtered_frame_is_an_execution():
         ''')
     kept = text[text.index("kept ="):text.index("print(")]
     assert ".collect()" in kept, text
+
+
+def test_a_groupby_bound_to_a_name_runs_its_frames_plan():
+    text = _converted('''
+        import pandas as pd
+        df = pd.read_csv("log.csv")
+        kept = df[df["n"] > 0]
+        kept.to_csv("a.csv", index=False)
+        by_key = kept.groupby("k", as_index=False)
+        print(by_key.agg(total=("n", "sum")))
+        ''')
+    kept = text[text.index("kept ="):text.index("sink_csv")]
+    assert ".collect()" in kept, text

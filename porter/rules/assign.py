@@ -54,6 +54,11 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
         if value.agg is not None and value.agg.frame.rows == frame.rows:
             return value.agg.code, None
         return emit.pl("lit", value.code), None
+    if isinstance(value, Opaque) and any(s.status != "converted" for s in value.sites):
+        # the script's own function (or another library) given data from a frame: it may well
+        # return a Series, which pandas aligns on the index and pl.lit cannot hold
+        raise Unsupported(f"`{_short(value.code.text)}` is computed from frame data by code porter "
+                          "hands to pandas, and may be a Series: the statement stays pandas")
     if isinstance(value, Opaque):
         ctx.lower(f"`{value.code.text}` is taken to be a single value broadcast to every row", 0.8)
         return emit.pl("lit", value.code), None
@@ -67,6 +72,13 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
                          "by position; port the computation to an expression")
         return emit.call("pl.Series", value.code, nan_to_null=True), None
     raise Unsupported("this value cannot be assigned as a column")
+
+
+def _short(text: str, width: int = 40) -> str:
+    """A call as `f(...)` when its text is long."""
+    if len(text) <= width:
+        return text
+    return text[:text.index("(")] + "(...)" if "(" in text else text[:width - 3] + "..."
 
 
 @rule("frame.setitem")

@@ -391,7 +391,7 @@ class _Walker:
             return
         counted = _row_counts(tree)
         for node in ast.walk(tree):
-            value = env.get(node.id) if isinstance(node, ast.Name) else None
+            value = _plan_of(env.get(node.id)) if isinstance(node, ast.Name) else None
             if isinstance(value, Frame) and value.binding is not None:
                 if node.id in counted and value.rows in self.services.file_rows:
                     # only the rows of a file are counted: Polars counts them from the scan
@@ -410,7 +410,7 @@ class _Walker:
         """Remember which named frames the plan bound by this statement reads."""
         parents = self.services.frame_parents.setdefault(self.statement_key, set())
         for name in _names_read(code.text):
-            value = env.get(name)
+            value = _plan_of(env.get(name))
             if isinstance(value, Frame) and value.binding is not None:
                 parents.add(value.binding)
 
@@ -898,6 +898,11 @@ def _after_loop(env: dict[str, Value], handed: dict[str, Frame]) -> dict[str, Va
         if isinstance(env.get(name), PandasValue):
             env[name] = PandasValue(emit.atom(name), frame=_after_change(name, frame, None))
     return env
+
+
+def _plan_of(value: Value | None) -> Value | None:
+    """The frame whose plan a named value runs: a pending groupby runs its frame's."""
+    return value.frame if isinstance(value, Grouped) else value
 
 
 def _row_counts(tree: ast.AST) -> set[str]:

@@ -141,10 +141,11 @@ def main():
     )
     per_stake = per_stake.with_columns(cm_per_day=pl.col("cm_per_day").round(2))
     per_stake = per_stake.with_columns(snow_cm=pl.col("snow_cm").round(2))
-    per_stake = per_stake.sort(
-        ["zone", "elevation_m"],
-        nulls_last=True,
-        maintain_order=True,
+    per_stake = (
+        per_stake
+        .sort(["zone", "elevation_m"], nulls_last=True, maintain_order=True)
+        .collect()
+        .lazy()
     )
     per_stake.with_columns(PANDAS_CSV_DATETIMES).sink_csv("stake_melt.csv")
 

@@ -35,21 +35,15 @@ stations = pl.scan_csv(
 print("raw lines:", log.select(pl.len()).collect().item())
 
 log = log.unique(keep="first", maintain_order=True)
-log = (
-    log
-    .with_columns(station=pl.col("station").str.strip_chars().str.to_uppercase())
-    .collect()
-    .lazy()
-)
+log = log.with_columns(station=pl.col("station").str.strip_chars().str.to_uppercase())
+log = log.collect().to_pandas()
+# TODO(porter): frame.getitem.column: kept on pandas with the statement it is in
 # TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
 #   pandas with .collect().to_pandas(); port that code to take a Polars frame
-log = log.with_columns(
-    keeper=pl.lit(
-        tidy_names(
-            log.select(pl.col('keeper').alias("keeper")).collect().to_series().to_pandas(),
-        ),
-    ),
-)
+# TODO(porter): frame.setitem: `tidy_names(...)` is computed from frame data by code porter hands to
+#   pandas, and may be a Series: the statement stays pandas
+log['keeper'] = tidy_names(log['keeper'])
+log = pl.from_pandas(log).lazy()
 log = log.with_columns(
     watch_no=pl.col("watch").str.to_lowercase().replace_strict(WATCHES, default=None),
 )
