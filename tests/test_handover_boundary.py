@@ -193,3 +193,47 @@ def test_a_column_given_to_the_scripts_own_function_is_assigned_by_pandas():
         df = df[df["crates"] > 1]
         ''', "df")
     assert "pl.lit(tidy" not in text
+
+
+def test_a_frame_pandas_made_with_fresh_labels_comes_back_to_polars():
+    # groupby.apply stays on pandas; its reset_index() result is labelled 0..n-1, so the
+    # merge, arithmetic and sort after it run in Polars again
+    text = both('''
+        import pandas as pd
+        def summary(g):
+            return pd.Series({"tons": g["tons"].sum(), "loads": len(g)})
+        df = pd.read_csv("cargo.csv")
+        per_berth = df.groupby("berth").apply(summary).reset_index()
+        sizes = pd.DataFrame({"berth": ["A", "B", "C"], "cranes": [2, 1, 0]})
+        per_berth = per_berth.merge(sizes, on="berth", how="left")
+        per_berth["per_crane"] = per_berth["tons"] / per_berth["cranes"]
+        per_berth = per_berth.sort_values(["per_crane", "berth"], ascending=[False, True])
+        ''', "per_berth")
+    assert "pl.from_pandas(per_berth)" in text
+    assert ".sort(" in text
+
+
+def test_a_frame_pandas_made_stays_pandas_where_categories_may_be_about():
+    # a category column sorts by its categories in pandas; porter does not know the columns of
+    # a frame pandas made, so it cannot bring the categories back as an Enum
+    source = textwrap.dedent('''
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        df["kind"] = df["kind"].astype("category")
+        counts = df.groupby("berth").apply(len).reset_index()
+        counts = counts.sort_values("berth")
+        ''')
+    assert "pl.from_pandas(counts)" not in convert_source(source).converted_text
+
+
+@pytest.mark.xfail(strict=True, reason="hand-over: a Polars Categorical reaches pandas with its "
+                   "categories in the order Polars met them; astype('category') sorts them, and "
+                   "pandas sorts the column by its categories")
+def test_category_columns_keep_pandas_category_order_when_handed_over():
+    both('''
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        df["kind"] = df["kind"].astype("category")
+        counts = df.groupby("kind", observed=True).apply(len).reset_index()
+        counts = counts.sort_values("kind")
+        ''', "counts")

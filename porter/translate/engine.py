@@ -737,7 +737,12 @@ class _Walker:
         elif isinstance(value, Scalar):
             env[name] = Scalar(emit.atom(name), pytype=value.pytype)
         elif isinstance(value, PandasValue):
-            env[name] = PandasValue(emit.atom(name))
+            fresh = self.current_small.value if isinstance(self.current_small, cst.Assign) else None
+            plain = fresh is not None and _makes_plain_frame(fresh) \
+                and not self.services.categories_possible
+            # a frame pandas made with labels 0..n-1 comes back to Polars at the next statement
+            # porter can rewrite whole
+            env[name] = PandasValue(emit.atom(name), frame=Frame(emit.atom(name)) if plain else None)
         elif isinstance(value, Opaque):
             const = value.const
             if name in self.services.mutated and isinstance(const, (list, dict, set)):
@@ -827,6 +832,30 @@ def _mutating_calls(stmt: cst.CSTNode) -> list[tuple[str, str]]:
 
     stmt.visit(Calls())
     return found
+
+
+_PLAIN_FRAME_METHODS = {"reset_index", "merge", "merge_asof", "merge_ordered"}
+
+
+def _makes_plain_frame(node: cst.BaseExpression) -> bool:
+    """Whether pandas code certainly gives a DataFrame labelled 0..n-1: `….reset_index()` (of a
+    Series or a frame, all levels, not in place) and merges that do not keep an index."""
+    if not isinstance(node, cst.Call):
+        return False
+    func = node.func
+    method = func.attr.value if isinstance(func, cst.Attribute) else \
+        func.value if isinstance(func, cst.Name) else None
+    if method not in _PLAIN_FRAME_METHODS:
+        return False
+    keywords = {a.keyword.value: a.value for a in node.args if a.keyword is not None}
+    if any(isinstance(a.value, cst.Name) is False and a.star for a in node.args):
+        return False  # **options: not known
+    if method == "reset_index":
+        drop = keywords.get("drop")
+        return not node.args or set(keywords) <= {"drop", "name", "names"} \
+            and len(keywords) == len(node.args) \
+            and (drop is None or isinstance(drop, cst.Name) and drop.value == "False")
+    return not {"left_index", "right_index", "indicator"} & set(keywords)
 
 
 def _from_pandas(name: str, frame: Frame) -> Code:

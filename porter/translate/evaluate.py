@@ -71,6 +71,9 @@ class Services:
     datetimes_possible: bool = True
     # statements that compute each named frame's data, by the assignment that named it
     consumers: dict[int, set[tuple[int, int]]] = field(default_factory=dict)
+    # the script may make category columns (astype("category"), cut, a parquet file): a frame
+    # pandas made comes back to Polars only when porter knows which columns are categories
+    categories_possible: bool = True
     # the rows of frames read from files: counting them again needs no more than the scan
     file_rows: set[int] = field(default_factory=set)
     # the bindings whose frames each binding's plan reads (`b = a.filter(...)`: a -> b)

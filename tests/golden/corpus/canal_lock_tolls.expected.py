@@ -14,6 +14,16 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
 PASSAGE_FORMAT = "%Y-%m-%d %H:%M"
 
 
@@ -59,17 +69,24 @@ def price(passages, tariffs):
         by="vessel_class",
         direction="backward",
     )
-    priced["toll"] = priced["base_toll"] + priced["per_metre"] * priced["length_m"]
+    priced = pl.from_pandas(priced).lazy()
+    priced = priced.with_columns(
+        toll=pl.col("base_toll") + pl.col("per_metre") * pl.col("length_m"),
+    )
     return priced
 
 
 def main():
     passages = load_passages("data/passages.csv").collect().lazy()
     tariffs = load_tariffs("data/tariffs.csv").collect().lazy()
-    locks = pl.scan_csv(
-        "data/locks.csv",
-        null_values=PANDAS_NA_VALUES,
-        infer_schema_length=None,
+    locks = (
+        pl.scan_csv(
+            "data/locks.csv",
+            null_values=PANDAS_NA_VALUES,
+            infer_schema_length=None,
+        )
+        .collect()
+        .lazy()
     )
     print(
         passages.select(pl.len()).collect().item(),
@@ -79,35 +96,103 @@ def main():
     )
 
     priced = price(passages, tariffs)
-    priced["month"] = priced.passed_at.dt.month
-    priced["paid"] = priced["paid"].str.lower().fillna("unknown")
-
-    # TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
-    #   pandas with .collect().to_pandas(); port that code to take a Polars frame
-    by_lock = (
-        priced.groupby(["lock_id", "month"])
-        .agg(passages=("passage_id", "count"), tolls=("toll", "sum"), cargo=("cargo_t", "sum"))
-        .reset_index()
-        .merge(locks.collect().to_pandas(), on="lock_id", how="left")
+    priced = priced.with_columns(month=pl.col("passed_at").dt.month())
+    priced = (
+        priced
+        .with_columns(
+            paid=pl.col("paid").str.to_lowercase().fill_null(pl.lit("unknown")),
+        )
+        .collect()
+        .lazy()
     )
-    by_lock["tolls"] = by_lock["tolls"].round(2)
-    by_lock["cargo_per_m_rise"] = by_lock["cargo"] / by_lock["rise_m"]   # Sainte-Aurèle has no rise
-    by_lock = by_lock.sort_values(["lock_id", "month"])
-    by_lock.to_csv("toll_by_lock.csv", index=False)
 
-    unpaid = priced.loc[priced["paid"] != "yes", ["passage_id", "lock_id", "passed_at", "vessel_class", "skipper", "paid", "toll"]]
-    unpaid = unpaid.sort_values(["toll", "passage_id"], ascending=[False, True])
-    unpaid.to_parquet("unpaid_passages.parquet", index=False)
+    by_lock = (
+        priced
+        .drop_nulls(["lock_id", "month"])
+        .group_by(["lock_id", "month"])
+        .agg(
+            pl.col("passage_id").count().cast(pl.Int64).alias("passages"),
+            pl.col("toll").sum().alias("tolls"),
+            pl.col("cargo_t").sum().alias("cargo"),
+        )
+        .sort(["lock_id", "month"])
+        .rename(
+            lambda c, other=locks.collect_schema().names(): c + "_x" if c in other and c not in ("lock_id",) else c,
+        )
+        .join(
+            locks.rename(
+                lambda c: c + "_y" if c in ("month", "passages", "tolls", "cargo") else c,
+            ),
+            on="lock_id",
+            how="left",
+            nulls_equal=True,
+            maintain_order="left_right",
+        )
+    )
+    by_lock = by_lock.with_columns(tolls=pl.col("tolls").round(2))
+    by_lock = by_lock.with_columns(
+        cargo_per_m_rise=(pl.col("cargo") / pl.col("rise_m")).fill_nan(None),
+    )   # Sainte-Aurèle has no rise
+    by_lock = by_lock.sort(["lock_id", "month"], nulls_last=True, maintain_order=True)
+    by_lock.with_columns(PANDAS_CSV_DATETIMES).sink_csv("toll_by_lock.csv")
 
-    no_tariff = priced[priced["toll"].isna()]
-    print("no toll worked out for", len(no_tariff), "passages")
-    print(no_tariff["vessel_class"].value_counts())
+    unpaid = (
+        priced
+        .filter(pl.col("paid").ne_missing(pl.lit("yes")))
+        .select(
+            "passage_id",
+            "lock_id",
+            "passed_at",
+            "vessel_class",
+            "skipper",
+            "paid",
+            "toll",
+        )
+    )
+    unpaid = (
+        unpaid
+        .sort(
+            ["toll", "passage_id"],
+            descending=[True, False],
+            nulls_last=True,
+            maintain_order=True,
+        )
+        .collect()
+        .lazy()
+    )
+    unpaid.sink_parquet("unpaid_passages.parquet")
 
-    owed = unpaid.groupby("skipper")["toll"].sum().reset_index()
-    owed = owed.sort_values(["toll", "skipper"], ascending=[False, True])
-    owed["toll"] = owed["toll"].round(2)
-    owed.to_csv("owed_by_skipper.csv", index=False)
-    print(owed.head())
+    no_tariff = priced.filter(pl.col("toll").is_null()).collect().lazy()
+    print(
+        "no toll worked out for",
+        no_tariff.select(pl.len()).collect().item(),
+        "passages",
+    )
+    print(
+        no_tariff.select(pl.col("vessel_class"))
+        .drop_nulls()
+        .group_by("vessel_class", maintain_order=True)
+        .agg(pl.len().cast(pl.Int64).alias("count"))
+        .sort("count", descending=True, maintain_order=True)
+        .collect(),
+    )
+
+    owed = (
+        unpaid
+        .drop_nulls("skipper")
+        .group_by("skipper")
+        .agg(pl.col("toll").sum())
+        .sort("skipper")
+    )
+    owed = owed.sort(
+        ["toll", "skipper"],
+        descending=[True, False],
+        nulls_last=True,
+        maintain_order=True,
+    )
+    owed = owed.with_columns(toll=pl.col("toll").round(2)).collect().lazy()
+    owed.with_columns(PANDAS_CSV_DATETIMES).sink_csv("owed_by_skipper.csv")
+    print(owed.head(5).collect())
 
 
 if __name__ == "__main__":

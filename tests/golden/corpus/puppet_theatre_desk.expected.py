@@ -75,22 +75,65 @@ def show_summary(g):
 # TODO(porter): groupby.apply: express the function as aggregations in group_by().agg(), or as
 #   window expressions with .over()
 per_show = sales.collect().to_pandas().groupby("show_id").apply(show_summary).reset_index()
-# TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
-#   pandas with .collect().to_pandas(); port that code to take a Polars frame
-per_show = per_show.merge(shows.collect().to_pandas(), on="show_id", how="left")
-per_show["fill_rate"] = per_show["tickets"] / per_show["capacity"]    # S05: capacity 0
-per_show['takings'] = per_show['takings'].round(2)
-per_show["loge_share"] = per_show["loge_share"].round(3)
-per_show = per_show.sort_values(["fill_rate", "show_id"], ascending=[False, True])
-per_show.to_csv("show_report.csv", index=False)
+per_show = pl.from_pandas(per_show).lazy()
+per_show = (
+    per_show
+    .rename(
+        lambda c, other=shows.collect_schema().names(): c + "_x" if c in other and c not in ("show_id",) else c,
+    )
+    .join(
+        shows.rename(
+            lambda c, other=per_show.collect_schema().names(): c + "_y" if c in other and c not in ("show_id",) else c,
+        ),
+        on="show_id",
+        how="left",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+)
+per_show = per_show.with_columns(
+    fill_rate=(pl.col("tickets") / pl.col("capacity")).fill_nan(None),
+)    # S05: capacity 0
+per_show = per_show.with_columns(takings=pl.col('takings').round(2))
+per_show = per_show.with_columns(loge_share=pl.col("loge_share").round(3))
+per_show = (
+    per_show
+    .sort(
+        ["fill_rate", "show_id"],
+        descending=[True, False],
+        nulls_last=True,
+        maintain_order=True,
+    )
+    .collect()
+    .lazy()
+)
+per_show.with_columns(PANDAS_CSV_DATETIMES).sink_csv("show_report.csv")
 
-busy = per_show[per_show.fill_rate >= 0.5][["show_id", "title", "show_date", "tickets", "fill_rate"]]
-busy.to_csv("data/busy_shows.csv", index=False)
+busy = (
+    per_show
+    .filter(pl.col("fill_rate") >= 0.5)
+    .select("show_id", "title", "show_date", "tickets", "fill_rate")
+)
+busy.with_columns(PANDAS_CSV_DATETIMES).sink_csv("data/busy_shows.csv")
 
 # same title on two dates: add them up
-per_title = per_show.groupby("title", dropna=False).agg(shows=("show_id", "count"), tickets=("tickets", "sum"), takings=("takings", "sum"))
-per_title = per_title.reset_index().sort_values("tickets", ascending=False)
-print(per_title)
+per_title = (
+    per_show
+    .group_by("title")
+    .agg(
+        pl.col("show_id").count().cast(pl.Int64).alias("shows"),
+        pl.col("tickets").sum().alias("tickets"),
+        pl.col("takings").sum().alias("takings"),
+    )
+    .sort("title", nulls_last=True)
+)
+per_title = per_title.sort(
+    "tickets",
+    descending=True,
+    nulls_last=True,
+    maintain_order=True,
+)
+print(per_title.collect())
 
 # till mix, for the treasurer
 till = (

@@ -13,6 +13,16 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
 HOURLY_RATE = 38   # per hour, agreed with the ferry board in 2023
 
 
@@ -31,8 +41,14 @@ def price_parts(lines, prices):
     # TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
     #   pandas with .collect().to_pandas(); port that code to take a Polars frame
     lines = lines.merge(prices.collect().to_pandas(), on="part", how="left")
-    lines = lines.sort_values(["job_id", "part", "unit_cost"], ascending=[True, True, False])
-    return lines.drop_duplicates(subset=["job_id", "part"], keep="first")
+    lines = pl.from_pandas(lines).lazy()
+    lines = lines.sort(
+        ["job_id", "part", "unit_cost"],
+        descending=[False, False, True],
+        nulls_last=True,
+        maintain_order=True,
+    )
+    return lines.unique(["job_id", "part"], keep="first", maintain_order=True)
 
 
 jobs = (
@@ -45,10 +61,14 @@ jobs = (
     .collect()
     .lazy()
 )
-prices = pl.scan_csv(
-    "data/parts_prices.csv",
-    null_values=PANDAS_NA_VALUES,
-    infer_schema_length=None,
+prices = (
+    pl.scan_csv(
+        "data/parts_prices.csv",
+        null_values=PANDAS_NA_VALUES,
+        infer_schema_length=None,
+    )
+    .collect()
+    .lazy()
 )
 jobs = clean_jobs(jobs)
 
@@ -65,30 +85,107 @@ lines = jobs.explode("part")
 lines["part"] = lines["part"].str.strip().str.lower()
 lines = lines[lines["part"] != ""]
 lines = price_parts(lines, prices)
-lines["unit_cost"] = lines["unit_cost"].fillna(0.0)
-
-parts_per_job = lines.groupby("job_id", as_index=False)["unit_cost"].sum().rename(columns={"unit_cost": "parts_cost"})
-job_costs = jobs.merge(parts_per_job, on="job_id", how="left")
-job_costs["parts_per_hour"] = job_costs["parts_cost"] / job_costs["hours"]   # hours 0: inspection only
-
-per_ferry = job_costs.groupby("ferry").agg(
-    jobs=("job_id", "count"),
-    hours=("hours", "sum"),
-    labour=("labour", "sum"),
-    parts=("parts_cost", "sum"),
-    worst_ratio=("parts_per_hour", "max"),
+lines = (
+    lines
+    .with_columns(unit_cost=pl.col("unit_cost").fill_null(0.0))
+    .collect()
+    .lazy()
 )
-per_ferry["total"] = per_ferry["labour"] + per_ferry["parts"]
-per_ferry = per_ferry.round(2).reset_index().sort_values(["total", "ferry"], ascending=[False, True])
-per_ferry.to_csv("ferry_costs.csv", index=False)
 
-usage = lines[lines.part.notna()].groupby(["part", "supplier"], dropna=False).agg(fitted=("job_id", "count"), spent=("unit_cost", "sum"))
-usage = usage.reset_index().sort_values(["fitted", "part"], ascending=[False, True])
-usage["spent"] = usage["spent"].round(2)
-usage.to_csv("data/part_usage.csv", index=False)
+parts_per_job = (
+    lines
+    .drop_nulls("job_id")
+    .group_by("job_id")
+    .agg(pl.col("unit_cost").sum())
+    .sort("job_id")
+    .rename({"unit_cost": "parts_cost"})
+)
+jobs = pl.from_pandas(jobs).lazy()
+job_costs = (
+    jobs
+    .rename(lambda c: c + "_x" if c in ("parts_cost",) else c)
+    .join(
+        parts_per_job.rename(
+            lambda c, other=jobs.collect_schema().names(): c + "_y" if c in other and c not in ("job_id",) else c,
+        ),
+        on="job_id",
+        how="left",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+)
+job_costs = job_costs.with_columns(
+    parts_per_hour=(pl.col("parts_cost") / pl.col("hours")).fill_nan(None),
+)   # hours 0: inspection only
 
-deferred = lines[(lines["status"] == "deferred") & lines["part"].notna()]
-deferred = deferred[["job_id", "ferry", "done_on", "mechanic", "part", "unit_cost"]].sort_values(["done_on", "job_id", "part"])
-deferred.to_csv("deferred_parts.csv", index=False)
-print(deferred.groupby("ferry")["unit_cost"].sum().round(2))
-print("parts with no price:", sorted(lines.loc[lines["supplier"].isna() & lines["part"].notna(), "part"].unique()))
+per_ferry = (
+    job_costs
+    .drop_nulls("ferry")
+    .group_by("ferry")
+    .agg(
+        pl.col("job_id").count().cast(pl.Int64).alias("jobs"),
+        pl.col("hours").sum().alias("hours"),
+        pl.col("labour").sum().alias("labour"),
+        pl.col("parts_cost").sum().alias("parts"),
+        pl.col("parts_per_hour").max().alias("worst_ratio"),
+    )
+    .sort("ferry")
+)
+per_ferry = per_ferry.with_columns(total=pl.col("labour") + pl.col("parts"))
+per_ferry = (
+    per_ferry
+    .with_columns(pl.selectors.float().round(2))
+    .sort(
+        ["total", "ferry"],
+        descending=[True, False],
+        nulls_last=True,
+        maintain_order=True,
+    )
+)
+per_ferry.with_columns(PANDAS_CSV_DATETIMES).sink_csv("ferry_costs.csv")
+
+usage = (
+    lines
+    .filter(pl.col("part").is_not_null())
+    .group_by(["part", "supplier"])
+    .agg(
+        pl.col("job_id").count().cast(pl.Int64).alias("fitted"),
+        pl.col("unit_cost").sum().alias("spent"),
+    )
+    .sort(["part", "supplier"], nulls_last=True)
+)
+usage = usage.sort(
+    ["fitted", "part"],
+    descending=[True, False],
+    nulls_last=True,
+    maintain_order=True,
+)
+usage = usage.with_columns(spent=pl.col("spent").round(2))
+usage.with_columns(PANDAS_CSV_DATETIMES).sink_csv("data/part_usage.csv")
+
+deferred = lines.filter((pl.col("status") == "deferred") & pl.col("part").is_not_null())
+deferred = (
+    deferred
+    .select("job_id", "ferry", "done_on", "mechanic", "part", "unit_cost")
+    .sort(["done_on", "job_id", "part"], nulls_last=True, maintain_order=True)
+    .collect()
+    .lazy()
+)
+deferred.with_columns(PANDAS_CSV_DATETIMES).sink_csv("deferred_parts.csv")
+print(
+    deferred.drop_nulls("ferry")
+    .group_by("ferry")
+    .agg(pl.col("unit_cost").sum())
+    .sort("ferry")
+    .select(pl.col("ferry"), pl.col("unit_cost").round(2).alias("unit_cost"))
+    .collect(),
+)
+print(
+    "parts with no price:",
+    sorted(
+        lines.filter(pl.col("supplier").is_null() & pl.col("part").is_not_null())
+        .select(pl.col("part").unique(maintain_order=True))
+        .collect()
+        .to_series(),
+    ),
+)
