@@ -847,9 +847,9 @@ def _makes_plain_frame(node: cst.BaseExpression) -> bool:
         func.value if isinstance(func, cst.Name) else None
     if method not in _PLAIN_FRAME_METHODS:
         return False
+    if any(a.star for a in node.args):
+        return False  # *args / **options: not known
     keywords = {a.keyword.value: a.value for a in node.args if a.keyword is not None}
-    if any(isinstance(a.value, cst.Name) is False and a.star for a in node.args):
-        return False  # **options: not known
     if method == "reset_index":
         drop = keywords.get("drop")
         return not node.args or set(keywords) <= {"drop", "name", "names"} \
