@@ -1,5 +1,5 @@
-"""Rule cases and differential checks for porter/rules/datetimes.py (the .dt accessor and
-pd.to_datetime).
+"""Rule cases and differential checks for porter/rules/datetimes.py (the .dt accessor,
+pd.to_datetime and durations: pd.Timedelta, pd.to_timedelta, .dt.days, .dt.total_seconds()).
 
 pandas is the reference implementation: every differential check runs the snippet with pandas
 and its conversion with Polars and compares the variables they computed.
@@ -11,7 +11,7 @@ import polars as pl
 import pytest
 
 from rule_checks import check_ports, check_todo, check_unchanged
-from support import convert, differential
+from support import convert, differential, run
 
 # A Monday and a Sunday (weekday numbering), a leap day twice (duplicates), the last day of a
 # common and of a leap year (day of year 365 / 366), midnight, and both kinds of missing value.
@@ -84,7 +84,6 @@ TODOS = [
     pytest.param('df["t"].dt.ceil("h")', "series.dt.ceil", id="ceil"),
     pytest.param('df["t"].dt.normalize()', "series.dt.normalize", id="normalize"),
     pytest.param('df["t"].dt.tz_localize("UTC")', "series.dt.tz_localize", id="tz_localize"),
-    pytest.param('(df["t"] - df["t"]).dt.days', "series.dt.days", id="timedelta days"),
     pytest.param('df["t"].dt.isocalendar()', "series.dt.isocalendar", id="isocalendar"),
     pytest.param('df["t"].dt.to_period("M")', "series.dt.to_period", id="to_period"),
 ]
@@ -240,3 +239,298 @@ def test_known_difference_to_datetime_guess() -> None:
 def test_known_difference_to_datetime_empty_string() -> None:
     differential(HEAD + 'df = pd.DataFrame({"raw": ["2024-01-05", ""]})\n'
                  'df["t"] = pd.to_datetime(df["raw"], format="%Y-%m-%d")\nresult = df\n')
+
+
+# -- durations: pd.Timedelta and pd.to_timedelta ---------------------------------------------
+
+# Two datetime columns whose differences are hard on purpose: NaT on either side, month ends and
+# leap days, negative durations (b before a) of less than a day and of whole days, zero, one
+# microsecond, a span of more than a century, and a row where both are missing.
+PAIRS = [
+    ("2024-01-31 00:00:00.000000", "2024-02-29 13:00:00.000000"),
+    ("2024-02-29 23:59:59.999999", None),
+    (None, "2024-03-01 00:00:00.000000"),
+    ("2024-03-31 12:00:00.000000", "2024-03-30 11:00:00.000000"),
+    ("2023-12-31 23:00:00.000000", "2024-01-01 00:00:00.000000"),
+    ("2024-05-05 05:00:00.000000", "2024-05-05 10:00:00.000000"),
+    ("2024-01-01 00:00:00.000001", "2024-01-01 00:00:00.000000"),
+    ("2024-06-30 00:00:00.000000", "2024-06-30 00:00:00.000000"),
+    ("2024-06-30 00:00:00.000000", "2024-06-27 00:00:00.000000"),
+    ("1901-02-28 08:30:00.250000", "2099-12-31 23:59:59.000000"),
+    ("2024-01-01 00:00:01.000000", "2024-01-01 00:00:00.000000"),
+    (None, None),
+]
+DURATIONS = (HEAD + f'df = pd.DataFrame({{"ra": {[a for a, _ in PAIRS]!r}, "rb": {[b for _, b in PAIRS]!r}}})\n'
+             'df["a"] = pd.to_datetime(df["ra"], format="%Y-%m-%d %H:%M:%S.%f")\n'
+             'df["b"] = pd.to_datetime(df["rb"], format="%Y-%m-%d %H:%M:%S.%f")\n')
+
+
+def _durations(expr: str) -> str:
+    """`expr` (over `df`) on the frame of pairs and on an empty frame of the same columns."""
+    on_empty = expr.replace("df[", "empty[")
+    return (DURATIONS + 'empty = df[df["ra"] == "no such value"]\n'
+            f'df["out"] = {expr}\nempty["out"] = {on_empty}\n'
+            "result = df\nresult_empty = empty\n")
+
+
+DURATION_PORTS = [
+    pytest.param('df["a"] + pd.Timedelta(days=7)', 'pl.col("a") + pl.duration(days=7)', id="plus days"),
+    pytest.param('df["a"] - pd.Timedelta(hours=6)', 'pl.col("a") - pl.duration(hours=6)', id="minus hours"),
+    pytest.param('df["a"] + pd.Timedelta("2D")', 'pl.col("a") + pl.duration(days=2)', id="text 2D"),
+    pytest.param('df["a"] + pd.Timedelta("1h")', 'pl.col("a") + pl.duration(hours=1)', id="text 1h"),
+    pytest.param('df["a"] + pd.Timedelta("-1D")', 'pl.col("a") + pl.duration(days=-1)', id="text -1D"),
+    pytest.param('df["a"] + pd.Timedelta("30 minutes")', 'pl.col("a") + pl.duration(minutes=30)',
+                 id="text 30 minutes"),
+    pytest.param('df["a"] + pd.to_timedelta(3, unit="D")', 'pl.col("a") + pl.duration(days=3)',
+                 id="to_timedelta"),
+    pytest.param('df["a"] + pd.Timedelta(1, unit="W")', 'pl.col("a") + pl.duration(days=7)',
+                 id="number with unit"),
+    pytest.param('df["a"] + pd.Timedelta(hours=1.5)', 'pl.duration(hours=1, minutes=30)',
+                 id="fractional hours"),
+    pytest.param('df["b"] - df["a"] > pd.Timedelta(days=3)',
+                 'pl.col("b") - pl.col("a") > pl.duration(days=3)', id="compare"),
+    pytest.param('(df["b"] - df["a"]) / pd.Timedelta(days=1)',
+                 '(pl.col("b") - pl.col("a")) / ((pl.col("b") - pl.col("a")) * 0 + pl.duration(days=1))',
+                 id="divide"),
+    pytest.param('(df["b"] - df["a"]).dt.days',
+                 '(pl.col("b") - pl.col("a")).dt.total_microseconds() // 86_400_000_000', id="dt.days"),
+    pytest.param('(df["b"] - df["a"]).dt.total_seconds()',
+                 '.dt.total_microseconds().pipe(lambda us: us // 1_000_000 + us % 1_000_000'
+                 ' / (us * 0 + 1_000_000))', id="dt.total_seconds"),
+]
+
+
+@pytest.mark.parametrize("before, expected", DURATION_PORTS)
+def test_duration_ports(before: str, expected: str) -> None:
+    text = check_ports(DURATIONS + f'df["out"] = {before}\n', expected)
+    assert "pd.Timedelta" not in text and "pd.to_timedelta" not in text
+
+
+DURATION_TODOS = [
+    pytest.param('pd.Timedelta("1 days 02:00:00")', "pd.Timedelta", id="clock text"),
+    pytest.param('pd.Timedelta("1.5h")', "pd.Timedelta", id="fractional text"),
+    pytest.param('pd.Timedelta("NaT")', "pd.Timedelta", id="NaT"),
+    pytest.param('pd.Timedelta(5)', "pd.Timedelta", id="a number is nanoseconds"),
+    pytest.param('pd.Timedelta(nanoseconds=5)', "pd.Timedelta", id="nanoseconds"),
+    pytest.param('pd.Timedelta(days=0.1)', "pd.Timedelta", id="not whole microseconds"),
+    pytest.param('pd.Timedelta(days=1000000)', "pd.Timedelta", id="beyond the nanosecond range"),
+    pytest.param('pd.Timedelta(days=len(df))', "pd.Timedelta", id="computed at run time"),
+    pytest.param('pd.to_timedelta(1.5, unit="D")', "pd.to_timedelta", id="fractional to_timedelta"),
+    pytest.param('pd.to_timedelta(df["n"], unit="D")', "pd.to_timedelta", id="a column"),
+    pytest.param('df["n"] * pd.Timedelta(hours=1)', "series.arith", id="times"),
+    pytest.param('(df["b"] - df["a"]) // pd.Timedelta(days=1)', "series.arith", id="floor division"),
+    pytest.param('(df["b"] - df["a"]).dt.seconds', "series.dt.seconds", id="dt.seconds"),
+]
+
+
+@pytest.mark.parametrize("before, key", DURATION_TODOS)
+def test_duration_todo(before: str, key: str) -> None:
+    check_todo(DURATIONS + 'df["n"] = df["a"].dt.day\n' + f"result = {before}\n", key)
+
+
+@pytest.mark.parametrize("before, key", [
+    pytest.param('df["ra"] + pd.Timedelta(days=1)', "series.arith", id="a text column"),
+    pytest.param('df["a"] / pd.Timedelta(days=1)', "series.arith", id="a datetime divided"),
+    pytest.param('df["a"].dt.days', "series.dt.days", id="dt.days of datetimes"),
+])
+def test_duration_todo_not_run(before: str, key: str) -> None:
+    # pandas raises on these (a TypeError or an AttributeError): only the marker is checked
+    text = convert(DURATIONS + f"result = {before}\n").converted_text
+    assert f"# TODO(porter): {key}" in text, text
+
+
+DURATIONS_SAME = [
+    'df["a"] + pd.Timedelta(days=7)',
+    'df["a"] - pd.Timedelta(hours=6)',
+    'pd.Timedelta("2D") + df["a"]',
+    'df["a"] + pd.Timedelta("-1D")',
+    'df["a"] + pd.to_timedelta(3, unit="D")',
+    'df["a"] + pd.Timedelta(hours=1.5)',
+    'df["a"] + pd.Timedelta(microseconds=1)',
+    'df["a"] + pd.Timedelta(weeks=1, days=1, minutes=-1)',
+    'df["b"] - df["a"] + pd.Timedelta(hours=1)',
+    'df["b"] - df["a"] > pd.Timedelta(days=3)',
+    'df["b"] - df["a"] >= pd.Timedelta(0, unit="D")',
+    'df["b"] - df["a"] == pd.Timedelta("1h")',
+    'df["b"] - df["a"] != pd.Timedelta("1h")',
+    'df["b"] - df["a"] < pd.Timedelta(days=-1)',
+    '(df["b"] - df["a"]) / pd.Timedelta(days=1)',
+    '(df["b"] - df["a"]) / pd.Timedelta(hours=1)',
+    '(df["b"] - df["a"]) / pd.Timedelta("1min")',
+    '(df["b"] - df["a"]) / pd.Timedelta(seconds=1)',
+    '(df["b"] - df["a"]) / pd.Timedelta(days=-2)',
+    '(df["b"] - df["a"]) / pd.Timedelta(days=0)',
+    'pd.Timedelta(days=1) / (df["b"] - df["a"])',
+    '(df["b"] - df["a"]).dt.days',
+    '(df["b"] - df["a"] + pd.Timedelta(hours=1)).dt.days',
+    '(df["b"] - df["a"]).dt.total_seconds()',
+]
+
+
+@pytest.mark.parametrize("expr", DURATIONS_SAME)
+def test_durations_match_pandas(expr: str) -> None:
+    # pandas is the reference implementation
+    result = differential(_durations(expr), "result", "result_empty")
+    text = result.converted_text
+    assert "TODO(porter)" not in text and "pd." not in text, text
+
+
+def test_duration_masks_match_pandas() -> None:
+    # pandas is the reference implementation: a NaT difference compares False, so its row is
+    # dropped by the mask and kept by its negation
+    differential(DURATIONS + 'late = df[(df["b"] - df["a"]) > pd.Timedelta(days=3)]\n'
+                 'rest = df[~((df["b"] - df["a"]) > pd.Timedelta(days=3))]\n', "late", "rest")
+
+
+def test_named_timedelta_matches_pandas() -> None:
+    # pandas is the reference implementation: a Timedelta kept in a name is a Python timedelta
+    # (pl.select(...).item()), which Polars reads as a duration and Python adds to a timestamp
+    source = (DURATIONS + "WEEK = pd.Timedelta(days=7)\nZERO = pd.Timedelta(hours=0)\n"
+              'df["due"] = df["a"] + WEEK\n'
+              'df["weeks"] = (df["b"] - df["a"]) / WEEK\n'
+              'df["nan"] = (df["b"] - df["a"]) / ZERO\n'
+              'cutoff = df["b"].max() - pd.Timedelta(days=30)\n'
+              'recent = df[df["b"] >= cutoff]\n'
+              "span = WEEK * 2 + pd.Timedelta(hours=1)\n"
+              "hours = span / pd.Timedelta(hours=1)\n"
+              "result = df\n")
+    result = differential(source, "result", "recent", "cutoff", "span", "hours", "WEEK")
+    text = result.converted_text
+    assert "WEEK = pl.select(pl.duration(days=7)).item()" in text, text
+    assert "import pandas" not in text, text
+
+
+def test_printed_timedelta_lowers_confidence() -> None:
+    site = next(s for s in convert(HEAD + "print(pd.Timedelta(days=7))\n").sites
+                if s.key == "pd.Timedelta")
+    assert site.confidence == 0.9 and "7 days, 0:00:00" in site.message
+
+
+TEXTS = ["2D", "2d", "1h", "1H", "6 hours", "30min", "30m", "30 minutes", "45s", "45S", "2 days",
+         "1 day", "2W", "500ms", "10us", "-1D", "+1D", " 1D ", "1 D", "1day", "1hour", "2sec",
+         "1 hr", "3 milliseconds", "3 microseconds", "0D"]
+UNITS = ["W", "w", "D", "d", "day", "days", "h", "H", "hr", "hour", "hours", "m", "min",
+         "minute", "minutes", "s", "S", "sec", "second", "seconds", "ms", "millisecond",
+         "milliseconds", "us", "microsecond", "microseconds"]
+
+
+def _duration_of(source: str) -> object:
+    """The Python value of the Timedelta porter wrote for `x = <source>`."""
+    converted = convert(HEAD + f"x = {source}\n").converted_text
+    assert "TODO(porter)" not in converted, converted
+    return run(converted)["x"]
+
+
+@pytest.mark.parametrize("text", TEXTS)
+def test_timedelta_texts_read_as_pandas_reads_them(text: str) -> None:
+    # pandas is the reference implementation: the same duration, kept in microseconds
+    import warnings
+    import pandas as pd
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")  # "d", "H", "S" are deprecated spellings in pandas 3.1
+        expected = pd.Timedelta(text)
+    assert expected.unit == "us"
+    assert _duration_of(f"pd.Timedelta({text!r})") == expected
+
+
+@pytest.mark.parametrize("unit", UNITS)
+def test_timedelta_units_read_as_pandas_reads_them(unit: str) -> None:
+    # pandas is the reference implementation, for pd.Timedelta and pd.to_timedelta alike
+    import warnings
+    import pandas as pd
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        expected = pd.Timedelta(-3, unit=unit)
+        assert pd.to_timedelta(-3, unit=unit) == expected
+    assert expected.unit == "us"
+    assert _duration_of(f"pd.Timedelta(-3, unit={unit!r})") == expected
+    assert _duration_of(f"pd.to_timedelta(-3, unit={unit!r})") == expected
+
+
+@pytest.mark.parametrize("keywords", [
+    "days=1", "hours=6", "days=-1", "days=1.5", "hours=0.25", "weeks=2", "minutes=90",
+    "seconds=1.5", "milliseconds=1", "microseconds=1", "days=1, hours=-2", "days=106751",
+])
+def test_timedelta_keywords_read_as_pandas_reads_them(keywords: str) -> None:
+    # pandas is the reference implementation
+    import pandas as pd
+    expected = eval(f"pd.Timedelta({keywords})", {"pd": pd})  # noqa: S307 - literal test input
+    assert expected.unit == "us"
+    assert _duration_of(f"pd.Timedelta({keywords})") == expected
+
+
+def _exact_floats(source: str, name: str) -> tuple[list[str], list[str]]:
+    """`name` computed by pandas and by the conversion, each float as its exact bits."""
+    import math
+    import pandas as pd
+    expected = run(source)[name]
+    actual = run(convert(source).converted_text)[name]
+    if isinstance(actual, pl.LazyFrame):
+        actual = actual.collect()
+
+    def bits(values: list[object]) -> list[str]:
+        return ["missing" if v is None or (isinstance(v, float) and math.isnan(v))
+                else float(v).hex() for v in values]
+
+    assert isinstance(expected, pd.DataFrame)
+    return bits(expected["out"].tolist()), bits(actual["out"].to_list())
+
+
+def _random_pairs(count: int) -> list[tuple[str, str]]:
+    """Datetimes with microseconds between 1900 and 2150 (differences below 2**53
+    microseconds, where pandas' total_seconds nudges nothing), and many short differences."""
+    import random
+    from datetime import datetime, timedelta
+    rng = random.Random(20240229)
+    start = datetime(1900, 1, 1)
+    pairs = []
+    for i in range(count):
+        a = start + timedelta(microseconds=rng.randrange(0, 250 * 365 * 86_400 * 10**6))
+        if i % 3 == 0:
+            b = a + timedelta(microseconds=rng.randrange(-10**10, 10**10))  # within 3 hours
+        elif i % 3 == 1:
+            b = a + timedelta(seconds=rng.randrange(-10**6, 10**6))  # whole seconds
+        else:
+            b = start + timedelta(microseconds=rng.randrange(0, 250 * 365 * 86_400 * 10**6))
+        pairs.append((a.strftime("%Y-%m-%d %H:%M:%S.%f"), b.strftime("%Y-%m-%d %H:%M:%S.%f")))
+    return pairs
+
+
+@pytest.mark.parametrize("expr", [
+    '(df["b"] - df["a"]) / pd.Timedelta(days=1)',
+    '(df["b"] - df["a"]) / pd.Timedelta(hours=1)',
+    '(df["b"] - df["a"]) / pd.Timedelta(minutes=1)',
+    '(df["b"] - df["a"]) / pd.Timedelta(days=7)',
+    '(df["b"] - df["a"]).dt.total_seconds()',
+    '(df["b"] - df["a"]).dt.days',
+])
+def test_duration_floats_are_bit_identical(expr: str) -> None:
+    # pandas is the reference implementation, compared bit for bit (the differential checks
+    # compare floats within a relative tolerance). Polars divides by a single value through its
+    # reciprocal, which differs in the last digit for about a quarter of these values.
+    pairs = _random_pairs(3000) + [(a, b) for a, b in PAIRS if a and b]
+    source = (HEAD + f'df = pd.DataFrame({{"ra": {[a for a, _ in pairs]!r}, '
+              f'"rb": {[b for _, b in pairs]!r}}})\n'
+              'df["a"] = pd.to_datetime(df["ra"], format="%Y-%m-%d %H:%M:%S.%f")\n'
+              'df["b"] = pd.to_datetime(df["rb"], format="%Y-%m-%d %H:%M:%S.%f")\n'
+              f'df["out"] = {expr}\nresult = df\n')
+    expected, actual = _exact_floats(source, "result")
+    differing = [(i, e, a) for i, (e, a) in enumerate(zip(expected, actual)) if e != a]
+    assert not differing, f"{len(differing)} of {len(expected)} differ, first {differing[:3]}"
+
+
+def test_naive_polars_division_differs_from_pandas() -> None:
+    # why the rewrite divides by a column: pandas (the reference) divides each value, Polars
+    # multiplies by the reciprocal of a single divisor
+    import pandas as pd
+    hours = pd.Series(pd.to_timedelta([5], unit="h"))
+    assert (hours / pd.Timedelta(days=1)).iloc[0] == 0.20833333333333334
+    # (on two rows or more: a one-row column is divided as a single value too)
+    frame = pl.DataFrame({"d": [5 * 3_600_000_000] * 2}, schema={"d": pl.Duration("us")})
+
+    def divided(expr: pl.Expr) -> list[float]:
+        return frame.select(expr).to_series().to_list()
+
+    assert divided(pl.col("d") / pl.duration(days=1)) == [0.20833333333333331] * 2
+    assert divided(pl.col("d").dt.total_microseconds() / 86_400_000_000) == [0.20833333333333331] * 2
+    assert divided(pl.col("d") / (pl.col("d") * 0 + pl.duration(days=1))) == [0.20833333333333334] * 2

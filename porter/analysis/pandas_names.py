@@ -79,12 +79,14 @@ STR = frozenset((
 ))
 
 DT = frozenset((
-    'as_unit', 'ceil', 'date', 'day', 'day_name', 'day_of_week', 'day_of_year', 'dayofweek',
-    'dayofyear', 'days_in_month', 'daysinmonth', 'floor', 'freq', 'hour', 'is_leap_year',
-    'is_month_end', 'is_month_start', 'is_quarter_end', 'is_quarter_start', 'is_year_end',
-    'is_year_start', 'isocalendar', 'microsecond', 'minute', 'month', 'month_name',
-    'nanosecond', 'normalize', 'quarter', 'round', 'second', 'strftime', 'time', 'timetz',
-    'to_period', 'to_pydatetime', 'tz', 'tz_convert', 'tz_localize', 'unit', 'weekday', 'year',
+    'as_unit', 'ceil', 'components', 'date', 'day', 'day_name', 'day_of_week', 'day_of_year',
+    'dayofweek', 'dayofyear', 'days', 'days_in_month', 'daysinmonth', 'floor', 'freq', 'hour',
+    'is_leap_year', 'is_month_end', 'is_month_start', 'is_quarter_end', 'is_quarter_start',
+    'is_year_end', 'is_year_start', 'isocalendar', 'microsecond', 'microseconds', 'minute',
+    'month', 'month_name', 'nanosecond', 'nanoseconds', 'normalize', 'quarter', 'round',
+    'second', 'seconds', 'strftime', 'time', 'timetz', 'to_period', 'to_pydatetime',
+    'to_pytimedelta', 'total_seconds', 'tz', 'tz_convert', 'tz_localize', 'unit', 'weekday',
+    'year',
 ))
 
 MODULE = frozenset((
@@ -122,7 +124,9 @@ def _generate() -> str:  # pragma: no cover - run by hand when pandas changes
         "SERIES": public(pd.Series),
         "GROUPBY": sorted(set(public(DataFrameGroupBy)) | set(public(SeriesGroupBy))),
         "STR": public(pd.Series.str),
-        "DT": public(pd.Series([pd.Timestamp("2020")]).dt),
+        # the .dt of datetimes and of durations (Timedelta), together
+        "DT": sorted(set(public(pd.Series([pd.Timestamp("2020")]).dt))
+                     | set(public(pd.Series([pd.Timedelta(1)]).dt))),
         "MODULE": public(pd),
     }
     out = []

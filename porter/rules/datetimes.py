@@ -6,13 +6,14 @@ become float64 when one is missing, Polars keeps integers with nulls (the same n
 
 from __future__ import annotations
 
+from fractions import Fraction
 import re
 
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import PandasCall, RuleContext, accessor_column, derived_column
-from porter.translate.values import Column, Value
+from porter.translate.values import Column, Scalar, Value
 
 
 def _dt(column: Column) -> Code:
@@ -168,3 +169,217 @@ def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
             raise ctx.todo("the format must be text")
         code = text.method("to_datetime", parse_format(fmt, ctx), **options)
     return derived_column(column, code, dtype="datetime")
+
+
+# -- durations: pd.Timedelta, pd.to_timedelta, .dt.days, .dt.total_seconds() ------------------
+#
+# pandas 3 keeps a Timedelta made from whole units in microseconds, as it keeps the datetimes it
+# parses, and porter's datetime columns are microseconds too. A Timedelta written out in the
+# script becomes a Scalar with two forms: `pl.duration(...)` inside Polars expressions, and the
+# same duration as a Python timedelta (`pl.select(pl.duration(...)).item()`) where plain Python
+# uses the value (a name, arithmetic with a collected Timestamp, a call porter leaves on pandas).
+
+_US_PER = {"W": 7 * 86_400_000_000, "D": 86_400_000_000, "h": 3_600_000_000,
+           "m": 60_000_000, "s": 1_000_000, "ms": 1_000, "us": 1}
+# unit spellings pandas 3.1 reads the same in a text ("2D", "6 hours") and in unit=; the ones it
+# keeps in nanoseconds (ns, nanos) are left out (tests/test_rules_datetimes.py checks each one)
+_UNITS = {
+    "W": "W", "w": "W", "D": "D", "d": "D", "day": "D", "days": "D",
+    "h": "h", "H": "h", "hr": "h", "hour": "h", "hours": "h",
+    "m": "m", "min": "m", "minute": "m", "minutes": "m",
+    "s": "s", "S": "s", "sec": "s", "second": "s", "seconds": "s",
+    "ms": "ms", "millisecond": "ms", "milliseconds": "ms",
+    "us": "us", "microsecond": "us", "microseconds": "us",
+}
+_KEYWORDS = {"weeks": "W", "days": "D", "hours": "h", "minutes": "m", "seconds": "s",
+             "milliseconds": "ms", "microseconds": "us"}
+_TEXT = re.compile(r"\s*([+-]?)(\d+)\s*([A-Za-z]+)\s*")
+# beyond ±106751 days (the nanosecond range) pandas changes the Timedelta's unit or refuses it
+_LIMIT_US = (2**63 - 1) // 1000
+_PARTS = (("days", 86_400_000_000), ("hours", 3_600_000_000), ("minutes", 60_000_000),
+          ("seconds", 1_000_000), ("microseconds", 1))
+
+
+def _whole_us(number: object, unit: str, ctx: RuleContext) -> int:
+    """`number` of `unit` in microseconds; a TODO unless it is exact."""
+    if isinstance(number, bool) or not isinstance(number, (int, float)):
+        raise ctx.todo(f"{number!r}: only a number written out is ported")
+    exact = Fraction(number) * _US_PER[unit]
+    if exact.denominator != 1:
+        raise ctx.todo(f"{number!r} {unit} is not a whole number of microseconds")
+    return int(exact)
+
+
+def _unit(spelling: object, ctx: RuleContext) -> str:
+    if not isinstance(spelling, str) or spelling not in _UNITS:
+        raise ctx.todo(f"unit {spelling!r} (porter reads {', '.join(sorted(set(_UNITS)))})")
+    return _UNITS[spelling]
+
+
+def _from_text(text: str, ctx: RuleContext) -> int:
+    match = _TEXT.fullmatch(text)
+    if match is None or match.group(3) not in _UNITS:
+        raise ctx.todo(f"the text {text!r}: porter reads a whole number and one unit, "
+                       'such as "2D", "6h" or "30 minutes"')
+    sign, number, unit = match.groups()
+    return (-1 if sign == "-" else 1) * int(number) * _US_PER[_UNITS[unit]]
+
+
+def duration_code(microseconds: int) -> Code:
+    """pl.duration(...) for a whole number of microseconds (days=1, hours=12 for 1.5 days)."""
+    sign, rest = (-1 if microseconds < 0 else 1), abs(microseconds)
+    parts: dict[str, object] = {}
+    for name, size in _PARTS:
+        count, rest = divmod(rest, size)
+        if count:
+            parts[name] = sign * count
+    return emit.pl("duration", **parts)
+
+
+def timedelta_scalar(microseconds: int, ctx: RuleContext) -> Scalar:
+    if abs(microseconds) > _LIMIT_US:
+        raise ctx.todo("beyond ±106751 days pandas keeps a Timedelta in seconds, or refuses it")
+    expr = duration_code(microseconds)
+    if ctx.shown:
+        ctx.lower("printed: Python's timedelta reads '7 days, 0:00:00' where pandas' Timedelta "
+                  "reads '7 days 00:00:00'", 0.9)
+    return Scalar(emit.pl("select", expr).method("item"), pytype="timedelta", expr=expr)
+
+
+@rule("pd.Timedelta")
+def timedelta(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.Timedelta(days=7) / pd.Timedelta("2D") / pd.Timedelta(3, unit="h") -> pl.duration(days=7)
+    inside expressions, a Python timedelta elsewhere.
+
+    Handles: weeks= … microseconds= (whole microseconds, floats such as hours=1.5 included),
+    a whole number and one unit as text ("2D", "6 hours", "-1D"), a number with unit=; all are
+    microseconds in pandas 3, like the datetimes porter reads.
+    Caveats: nanoseconds, numbers without a unit (nanoseconds in pandas), other texts
+    ("1 days 02:00:00", "1.5h", "NaT") and values computed at run time are TODOs; printed, a
+    Python timedelta reads '7 days, 0:00:00' (0.9).
+    """
+    ctx.reject_unknown(call, "value", "unit", *_KEYWORDS, positional=2)
+    parts = {k: call.const(k) for k in _KEYWORDS if k in call.kwargs}
+    if call.has("value", 0):
+        if parts:
+            raise ctx.todo("a value together with keyword units")
+        return timedelta_scalar(_value_us(call, ctx), ctx)
+    if call.has("unit", 1) or not parts:
+        raise ctx.todo("a unit without a value, or no value at all")
+    return timedelta_scalar(sum(_whole_us(n, _KEYWORDS[k], ctx) for k, n in parts.items()), ctx)
+
+
+def _value_us(call: PandasCall, ctx: RuleContext) -> int:
+    """The `value` (and `unit`) argument of pd.Timedelta / pd.to_timedelta in microseconds."""
+    value = call.const("value" if call.name == "Timedelta" else "arg", 0)
+    unit = call.const("unit", 1, None)
+    if isinstance(value, str):
+        if unit is not None:
+            raise ctx.todo("a text with unit= (pandas refuses it)")
+        return _from_text(value, ctx)
+    if unit is None:
+        raise ctx.todo("a number without unit= is nanoseconds in pandas")
+    if isinstance(value, float):
+        raise ctx.todo("a fractional number with unit= is kept in nanoseconds by pandas")
+    return _whole_us(value, _unit(unit, ctx), ctx)
+
+
+@rule("pd.to_timedelta")
+def to_timedelta(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.to_timedelta(3, unit="D") / pd.to_timedelta("2D") -> pl.duration(days=3) (as
+    pd.Timedelta).
+
+    Caveats: a column, a list, a fractional number (nanoseconds in pandas) are TODOs.
+    """
+    ctx.reject_unknown(call, "arg", "unit", positional=2)
+    if isinstance(call.arg("arg", 0), Column):
+        raise ctx.todo("a column: only a single number or text is ported")
+    return timedelta_scalar(_value_us(call, ctx), ctx)
+
+
+def is_timedelta(value: Value) -> bool:
+    """A duration written out in the script (pd.Timedelta …), or a name holding one."""
+    return isinstance(value, Scalar) and value.pytype == "timedelta"
+
+
+def _true_divide(numerator: Code, divisor: Code | int) -> Code:
+    """numerator / divisor, each value divided as numpy (and pandas) divide.
+
+    Polars divides by a single value through its reciprocal (x * (1 / d)), which is not the
+    correctly rounded quotient: 5 hours / 1 day is 0.20833333333333334 in pandas and
+    0.20833333333333331 in Polars, and about a quarter of whole seconds, minutes or hours
+    differ in the last digit. Divided by a column of that value (numerator * 0 + d), Polars
+    divides element by element, exactly as pandas does.
+    """
+    column = emit.binop(emit.binop(numerator, "*", 0), "+", divisor)
+    return emit.binop(numerator, "/", column)
+
+
+def timedelta_arithmetic(call: PandasCall, ctx: RuleContext, column: Column) -> Column:
+    """series.arith where one operand is a Timedelta (see is_timedelta)."""
+    left, right = call.receiver, call.args[0]
+    assert left is not None
+    op = call.name
+    if column.dtype not in (None, "datetime"):
+        raise ctx.todo(f"a Timedelta with a {column.dtype} column")
+    lcode, rcode = ctx.expr(left, column.frame), ctx.expr(right, column.frame)
+    others = [left, right]
+    if op in ("+", "-"):
+        # datetimes and durations both: NaT stays missing (null), the unit stays microseconds
+        dtype = "datetime" if column.dtype == "datetime" else None
+        return derived_column(column, emit.binop(lcode, op, rcode), dtype=dtype, others=others)
+    if column.dtype == "datetime":
+        raise ctx.todo(f"a datetime column {op} a Timedelta (pandas refuses it)")
+    if op == "/" and is_timedelta(right):
+        ctx.lower("divided element by element, as pandas divides (Polars divides by a single "
+                  "value through its reciprocal, which changes the last digit)", 1.0)
+        code = _true_divide(lcode, rcode)
+        if right.expr in (None, duration_code(0)):  # 0 / 0 is NaN (a name's value is not known)
+            code = code.method("fill_nan", None)
+        return derived_column(column, code, dtype="float", others=others)
+    if op == "/":  # a Timedelta divided by each duration of a column: element by element
+        code = emit.binop(lcode, "/", rcode).method("fill_nan", None)
+        return derived_column(column, code, dtype="float", others=others)
+    raise ctx.todo(f"the operator {op} with a Timedelta")
+
+
+@rule("series.dt.days")
+def days(call: PandasCall, ctx: RuleContext) -> Value:
+    """td.dt.days -> td.dt.total_microseconds() // 86_400_000_000.
+
+    Handles: pandas floors (-1 hour is day -1), Polars' dt.total_days() truncates toward zero;
+    integer floor division of the microseconds floors like pandas (D07). NaT stays missing.
+    Caveats: a duration kept in nanoseconds (Parquet written by pandas 2) loses what is below a
+    microsecond first, which changes the day only just below a negative whole day.
+    """
+    column = accessor_column(call)
+    if column.dtype is not None:
+        raise ctx.todo(f"a {column.dtype} column has no .dt.days in pandas")
+    code = emit.binop(_dt(column).method("total_microseconds"), "//", emit.atom("86_400_000_000"))
+    return _result(column, code, "int")
+
+
+@rule("series.dt.total_seconds")
+def total_seconds(call: PandasCall, ctx: RuleContext) -> Value:
+    """td.dt.total_seconds() -> whole seconds + the rest divided by 1_000_000, as pandas.
+
+    Handles: pandas 3.1 computes floor(us / 10**6) + (us mod 10**6) / 10**6 (a float); Polars'
+    dt.total_seconds(fractional=True) divides another way and differs in the last digit, so the
+    same two steps are written out (the division element by element, see _true_divide).
+    NaT stays missing.
+    Caveats: a duration kept in nanoseconds loses what is below a microsecond; beyond 2**53
+    microseconds (285 years) pandas nudges some results by one last digit.
+    """
+    column = accessor_column(call)
+    ctx.reject_unknown(call)
+    if column.dtype is not None:
+        raise ctx.todo(f"a {column.dtype} column has no .dt.total_seconds() in pandas")
+    # us // 10**6 + us % 10**6 / (us * 0 + 10**6); `us` is named once (Expr.pipe calls the
+    # lambda while the query is built) rather than written out three times
+    us, million = emit.atom("us"), emit.atom("1_000_000")
+    rest = emit.binop(us, "%", million)
+    whole = emit.binop(us, "//", million)
+    body = emit.binop(whole, "+", emit.binop(rest, "/", emit.binop(emit.binop(us, "*", 0), "+",
+                                                                    million)))
+    code = _dt(column).method("total_microseconds").method("pipe", Code(f"lambda us: {body.text}"))
+    return _result(column, code, "float")

@@ -13,6 +13,7 @@ import math
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
+from porter.rules.datetimes import is_timedelta, timedelta_arithmetic
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, derive, derived_column, value_dtype,
 )
@@ -48,12 +49,15 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: 0/0 gives NaN in both, which porter turns into a missing value (fill_nan(None));
     integer // and % by zero give inf/NaN in pandas and null in Polars, so // is written as a
     floored true division and % is guarded; bool + bool is a logical or in pandas; inf * 0
-    and inf - inf (an operand from a division or a power) are made missing too.
+    and inf - inf (an operand from a division or a power) are made missing too; an operand
+    that is a Timedelta goes to datetimes.timedelta_arithmetic.
     Caveats: NaN made from inf values already in the data is not made missing.
     """
     left, right = call.receiver, call.args[0]
     assert left is not None
     column = base_column(left, right)
+    if is_timedelta(left) or is_timedelta(right):
+        return timedelta_arithmetic(call, ctx, column)
     frame = column.frame
     op = call.name
     lcode = operand(left, frame, ctx, as_bool=True)

@@ -170,6 +170,8 @@ def expr_in(value: Value, frame: Frame) -> Code:
     if isinstance(value, Scalar):
         if value.agg is not None and value.agg.frame.rows == frame.rows:
             return value.agg.code
+        if value.expr is not None:
+            return value.expr
         return value.code
     if isinstance(value, Opaque):
         if value.is_const and value.code.text.isidentifier() and value.code.text not in (

@@ -107,6 +107,9 @@ class Scalar(Value):
     pytype: str | None = field(default=None, kw_only=True)
     agg: Column | None = field(default=None, kw_only=True)  # the reduction as an expression of its frame
     of: Frame | None = field(default=None, kw_only=True)  # the frame it describes (its column names)
+    # the value as a Polars expression usable in any frame (a constant: pl.duration(days=7) for
+    # pd.Timedelta(days=7)); `code` stays the plain Python value for code outside expressions
+    expr: Code | None = field(default=None, kw_only=True)
 
 
 @dataclass(frozen=True)

@@ -5,7 +5,6 @@ the ice melts. 'buried' means snow hid the stake; 'trace' of snow counts as none
 suspicious when it jumps away from the median of the last three readings.
 """
 import numpy as np
-import pandas as pd
 import polars as pl
 
 # Text that pandas' read_csv reads as a missing value.
@@ -113,14 +112,9 @@ def main():
         )
         .sort("stake")
     )
-    per_stake = per_stake.collect().to_pandas()
-    # TODO(porter): frame.getitem.column: kept on pandas with the statement it is in
-    # TODO(porter): series.arith: kept on pandas with the statement it is in
-    # TODO(porter): pd.Timedelta: porter has no rule for this API yet
-    # TODO(porter): frame.setitem: a Series computed by pandas whose rows porter cannot match to the
-    #   frame's (pandas aligns it on the index): the statement stays pandas
-    per_stake["days"] = (per_stake["last_day"] - per_stake["first_day"]) / pd.Timedelta(days=1)
-    per_stake = pl.from_pandas(per_stake).lazy()
+    per_stake = per_stake.with_columns(
+        days=(pl.col("last_day") - pl.col("first_day")) / ((pl.col("last_day") - pl.col("first_day")) * 0 + pl.duration(days=1)),
+    )
     per_stake = per_stake.with_columns(
         cm_per_day=((pl.col("high_cm") - pl.col("low_cm")) / pl.col("days")).fill_nan(None),
     )
