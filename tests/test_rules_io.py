@@ -348,3 +348,125 @@ def test_files_of_one_layout_read_by_one_function_share_the_schema(data: Path) -
         result = pd.concat([load("week1.csv"), load("week4.csv")])
         """, data_dir=str(data))
     assert "infer_schema_length=None" in clash.converted_text  # kg is a number in one, text in the other
+
+
+# -- na_values per column (a dict) ------------------------------------------------------------
+
+# pandas (3.1) with na_values={column: tokens}: its own tokens (NA, n/a, an empty field, ...)
+# still apply to every column and the dict adds tokens to the columns it names; a key that names
+# no column is ignored; a number matches its usual spellings. "comp" is a token of "count" only:
+# it must stay text in "note" and "Prüfer". Without the token "count" is text, with it numbers.
+TALLIES_CSV = """\
+Prüfer,count,note,day
+Ana,1,comp,2024-01-31
+Bé,comp,x,2024-02-29
+Çé,3,,NA
+NA,-1,n/a,2024-03-01
+"comp",4.5,"-",
+Dee,"comp",comp,2024-12-31
+Ëve,,ünï,2024-02-29
+"""
+
+
+@pytest.fixture
+def tallies(data: Path) -> Path:
+    (data / "tallies.csv").write_text(TALLIES_CSV, encoding="utf-8")
+    (data / "header_only.csv").write_text("Prüfer,count,note,day\n", encoding="utf-8")
+    return data
+
+
+PER_COLUMN = [
+    pytest.param('pd.read_csv("tallies.csv", na_values={"count": "comp"})',
+                 id="a token makes the column numbers"),
+    pytest.param('pd.read_csv("tallies.csv", na_values={"count": ["comp"], "note": ["x", "-"]})',
+                 id="lists of tokens for two columns"),
+    pytest.param('pd.read_csv("tallies.csv", na_values={"note": "comp"})',
+                 id="a token of one column stays text in the others"),
+    pytest.param('pd.read_csv("tallies.csv", na_values={"count": ["comp", -1]})',
+                 id="a number in its spellings"),
+    pytest.param('pd.read_csv("tallies.csv", na_values={"no such column": "comp", "count": []})',
+                 id="a key that is no column and an empty list are ignored"),
+    pytest.param('pd.read_csv("tallies.csv", na_values={"Prüfer": "Ana"}, keep_default_na=True)',
+                 id="a unicode header and keep_default_na=True"),
+    pytest.param('pd.read_csv("tallies.csv", na_values={"count": "comp"}, usecols=["note", "count"])',
+                 id="usecols"),
+    pytest.param('pd.read_csv("tallies.csv", na_values={"day": "2024-02-29"}, parse_dates=["day"])',
+                 id="parse_dates after the tokens"),
+    pytest.param('pd.read_csv("tallies.csv", na_values={"count": "comp"}, dtype={"note": str})',
+                 id="with dtype for another column"),
+    pytest.param('pd.read_csv("header_only.csv", na_values={"count": "comp"})', id="no rows"),
+    pytest.param('pd.read_csv("tallies.csv", na_values={"count": "comp"})["count"].sum()',
+                 id="the numbers add up"),
+]
+
+
+@pytest.mark.parametrize("read", PER_COLUMN)
+def test_read_csv_na_values_per_column_with_data_matches_pandas(read: str, tallies: Path) -> None:
+    # pandas is the reference implementation; --data tells porter the types that are left
+    result = differential(f"""
+        import pandas as pd
+        result = {read}
+        """, data_dir=str(tallies))
+    assert "TODO(porter)" not in result.converted_text, result.converted_text
+
+
+def test_read_csv_na_values_per_column_form(tallies: Path) -> None:
+    result = convert('import pandas as pd\n'
+                     'df = pd.read_csv("tallies.csv", na_values={"count": "comp", "nope": "x"})\n',
+                     data_dir=str(tallies))
+    text = result.converted_text
+    assert 'null_values=PANDAS_NA_VALUES' in text  # pandas' own tokens, for every column
+    assert '"count": pl.String' in text  # read as text: "comp" is not lost to a type first
+    assert 'pl.col("count").replace(["comp"], None).cast(pl.Float64)' in text, text
+    assert "nope" not in text  # a key that names no column is ignored, as pandas ignores it
+
+
+@pytest.mark.parametrize("read", [
+    pytest.param('pd.read_csv("tallies.csv", na_values={"count": "comp"}, dtype={"count": "float64"})',
+                 id="dtype float"),
+    pytest.param('pd.read_csv("tallies.csv", na_values={"count": "comp", "note": ["x"]},'
+                 ' dtype={"count": str, "note": str})', id="dtype str"),
+])
+def test_read_csv_na_values_per_column_with_dtype_matches_pandas(read: str, tallies: Path) -> None:
+    # pandas is the reference implementation: with dtype= the type is known without --data
+    result = differential(f"""
+        import pandas as pd
+        result = {read}
+        """)
+    assert "TODO(porter)" not in result.converted_text, result.converted_text
+    site = next(s for s in result.sites if s.key == "pd.read_csv")
+    assert site.confidence <= 0.95 and "pandas ignores the key" in site.message
+
+
+@pytest.mark.parametrize("read, reason", [
+    pytest.param('pd.read_csv("tallies.csv", na_values={"count": "comp"})', "--data",
+                 id="the type left is known only with --data"),
+    pytest.param('pd.read_csv("tallies.csv", na_values={1: "comp"})', "position",
+                 id="a number key is a column position"),
+    pytest.param('pd.read_csv("tallies.csv", na_values={"count": "comp"}, keep_default_na=False)',
+                 "keep_default_na", id="keep_default_na=False with a dict"),
+    pytest.param('pd.read_csv("tallies.csv", na_values=["comp"], keep_default_na=False)',
+                 "keep_default_na", id="keep_default_na=False with a list"),
+])
+def test_read_csv_na_values_per_column_todo(read: str, reason: str, tallies: Path) -> None:
+    text = check_todo(f"import pandas as pd\ndf = {read}\n", "pd.read_csv")
+    assert reason in text, text
+
+
+def test_read_csv_na_values_bool_left_is_a_todo(tallies: Path) -> None:
+    # Polars cannot cast text to booleans: what is left of a column of True/False stays pandas
+    (tallies / "flags.csv").write_text("ok,n\nTrue,1\n?,2\nFalse,3\n", encoding="utf-8")
+    source = 'import pandas as pd\ndf = pd.read_csv("flags.csv", na_values={"ok": "?"})\n'
+    text = convert(source, data_dir=str(tallies)).converted_text
+    assert "# TODO(porter): pd.read_csv" in text and "bool" in text, text
+
+
+def test_pandas_keeps_default_tokens_with_a_dict(tallies: Path) -> None:
+    # the pandas behaviour the rule relies on, checked on pandas itself (the reference)
+    df = pd.read_csv("tallies.csv", na_values={"count": "comp", "nope": "x"})
+    assert df["note"].isna().tolist()[2:4] == [True, True]  # "" and "n/a": pandas' own tokens
+    assert df["note"].tolist()[0] == "comp" and df["Prüfer"].isna().tolist()[3]
+    assert str(df["count"].dtype) == "float64"
+    strict = pd.read_csv("tallies.csv", na_values={"count": "comp"}, keep_default_na=False)
+    assert strict["note"].tolist()[2:4] == ["", "n/a"]  # no default token anywhere
+    assert str(strict["count"].dtype) == "str"  # its empty field is "" (text), not missing

@@ -50,19 +50,25 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     """pd.read_csv -> pl.scan_csv.
 
     Handles: pandas' missing-value tokens (null_values), type inference over the whole file
-    (infer_schema_length=None), sep, usecols in file order, dtype, parse_dates, na_values,
-    nrows, skiprows (a count).
-    Caveats: index_col, header/names, converters, encodings other than UTF-8 and a list of
-    skipped rows are TODOs. With nrows, Polars still infers types from the whole file (0.9).
+    (infer_schema_length=None), sep, usecols in file order, dtype, parse_dates, na_values
+    (one value, a list, or a dict of columns: see _emptied_columns), nrows, skiprows (a count).
+    Caveats: index_col, header/names, converters, encodings other than UTF-8, a list of
+    skipped rows and keep_default_na=False are TODOs; na_values per column needs --data (or a
+    dtype= for those columns). With nrows, Polars still infers types from the whole file (0.9).
     parse_dates lets Polars guess the format, and it reads 05/03/2024 day first where pandas
     reads it month first (0.85). An empty header is named "Unnamed: n" only when --data shows
     it; a repeated header name is a TODO then.
     """
     known = {"filepath_or_buffer", "sep", "delimiter", "usecols", "dtype", "parse_dates",
-             "na_values", "nrows", "skiprows", "encoding", *READ_CSV_IGNORED}
+             "na_values", "keep_default_na", "nrows", "skiprows", "encoding", *READ_CSV_IGNORED}
     ctx.reject_unknown(call, *known, positional=1)
     source = call.arg("filepath_or_buffer", 0)
     check_source(source, ctx)
+    if call.const("keep_default_na", None, True, kinds=(bool,)) is False:
+        # pandas then reads an empty field as "" (a column of numbers with an empty field
+        # becomes text), where Polars reads a missing number
+        raise ctx.todo("keep_default_na=False: pandas keeps empty fields as \"\" (a number "
+                       "column with one becomes text), Polars reads them as missing")
     options: dict[str, Any] = {}
     kwargs: dict[str, object] = {}
     sep = call.const("sep", None, None, kinds=(str,)) or call.const("delimiter", None, None, kinds=(str,))
@@ -75,15 +81,12 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     encoding = call.const("encoding", None, None, kinds=(str,))
     if encoding is not None and encoding.lower().replace("-", "").replace("_", "") not in ("utf8", "utf8sig"):
         raise ctx.todo(f"encoding {encoding!r}: Polars reads UTF-8 only; re-encode the file first")
-    na_values = call.const_values("na_values")
+    per_column = _na_values_per_column(call, ctx)
+    na_values = None if per_column is not None else call.const_values("na_values")
     nulls: object = emit.atom(NA_CONSTANT)
     if na_values is not None:
         extra = na_value_texts(na_values)
-        if any(is_number(v) for v in na_values):
-            # pandas compares a numeric column with the number (-1.00 is missing too); Polars
-            # matches the text, so porter lists the usual spellings (-1, -1.0)
-            ctx.lower("a number in na_values is missing in pandas however it is written "
-                      "(-1.00); Polars matches the spellings listed", 0.9)
+        _lower_for_numbers(na_values, ctx)
         nulls = emit.binop(emit.atom(NA_CONSTANT), "+", [v for v in extra if v not in PANDAS_NA_TOKENS])
         options["na_values"] = extra
     kwargs["null_values"] = nulls
@@ -119,15 +122,20 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                   "whole file (a column whose later rows hold text is read as text)", 0.9)
 
     schema = ctx.input_schema("csv", _paths(source), options)
+    emptied: list[tuple[str, list[str], Code | None, str]] = []
+    if per_column is not None:
+        emptied = _emptied_columns(per_column, schema, overrides, dtypes, source, options, ctx)
+        if emptied:  # read as text, so that no token is lost to a type Polars infers first
+            kwargs["schema_overrides"] = {**overrides, **{c: emit.atom("pl.String") for c, *_ in emptied}}
     exact = getattr(schema, "polars", None)
     if exact and "" not in exact:
         # --data gave the file: the scan is told the types porter read (inferring them over
         # the whole file again would read it twice). They are matched to the header by name;
         # a later file whose values do not fit them fails loudly, and a column it adds is
         # read as text (infer_schema_length=0) where pandas would infer its type
-        kwargs.pop("schema_overrides", None)
+        scan_types = kwargs.pop("schema_overrides", overrides)
         kwargs.pop("infer_schema_length", None)
-        kwargs = {"schema_overrides": {c: overrides.get(c, emit.atom(t)) for c, t in exact.items()},
+        kwargs = {"schema_overrides": {c: scan_types.get(c, emit.atom(t)) for c, t in exact.items()},
                   "infer_schema_length": 0, **kwargs}
         ctx.lower("the column types are the ones read from --data: a file whose values do not "
                   "fit them fails to read, and a column it adds is read as text (pandas would "
@@ -140,6 +148,14 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     if unnamed:  # an empty header (a written index): pandas names it by its position
         code = code.method("rename", unnamed)
         schema = {unnamed.get(c, c): kind for c, kind in schema.items()}  # type: ignore[union-attr]
+    if emptied:
+        # pandas empties these columns' own tokens before it infers their types
+        exprs = []
+        for column, tokens, cast, kind in emptied:
+            expr = emit.col(column).method("replace", tokens, None)
+            exprs.append(expr.method("cast", cast) if cast is not None else expr)
+            dtypes[column] = kind
+        code = code.method("with_columns", *exprs)
     columns = tuple(schema) if schema and not getattr(schema, "partial", False) else None
     for column, kind in (schema or {}).items():
         dtypes.setdefault(column, kind)
@@ -161,6 +177,85 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower("column types are inferred from the data the same way in both, except "
                   "integer columns with missing values (float in pandas)", 0.95)
     return frame
+
+
+def _lower_for_numbers(values: list[Any], ctx: RuleContext) -> None:
+    if any(is_number(v) for v in values):
+        # pandas compares a numeric column with the number (-1.00 is missing too); Polars
+        # matches the text, so porter lists the usual spellings (-1, -1.0)
+        ctx.lower("a number in na_values is missing in pandas however it is written "
+                  "(-1.00); Polars matches the spellings listed", 0.9)
+
+
+def _na_values_per_column(call: PandasCall, ctx: RuleContext) -> dict[str, list[str]] | None:
+    """na_values={column: token(s)}: the texts each column adds to pandas' own tokens (which
+    still apply to every column); None when na_values is not a dict."""
+    if not call.has("na_values"):
+        return None
+    given = call.const("na_values")
+    if not isinstance(given, dict):
+        return None
+    per_column: dict[str, list[str]] = {}
+    for column, value in given.items():
+        if not isinstance(column, str):
+            raise ctx.todo(f"na_values key {column!r}: pandas reads a number as a column position")
+        values = [] if value is None else list(value) if isinstance(value, (list, tuple, set)) \
+            else [value]
+        if not all(isinstance(v, str) or is_number(v) for v in values):
+            raise ctx.todo(f"na_values[{column!r}]={value!r}: porter reads text or numbers here")
+        _lower_for_numbers(values, ctx)
+        texts = [t for t in na_value_texts(values) if t not in PANDAS_NA_TOKENS]
+        if texts:
+            per_column[column] = texts
+    return per_column
+
+
+def _emptied_columns(per_column: dict[str, list[str]], schema: Any, overrides: dict[str, Code],
+                     dtypes: dict[str, str], source: Value, options: dict[str, Any],
+                     ctx: RuleContext) -> list[tuple[str, list[str], Code | None, str]]:
+    """The columns whose own tokens are emptied after the scan: (name, tokens, the cast to the
+    type pandas gives the rest, porter's dtype name).
+
+    Polars' null_values takes one text per column in a dict (and then no others for the other
+    columns), so the scan keeps pandas' tokens for every column and reads these columns as
+    text; their tokens become missing afterwards and the column gets the type pandas infers
+    for what is left: a dtype= of the call, or, with --data, the type Polars infers from the
+    file with those tokens missing (as for a list of na_values). A key that is not a column of
+    the file is ignored, as pandas ignores it.
+    """
+    if getattr(schema, "partial", False):
+        raise ctx.todo("na_values per column for files of different layouts")
+    out: list[tuple[str, list[str], Code | None, str]] = []
+    for column, tokens in per_column.items():
+        if column in overrides:
+            if schema is None:
+                ctx.lower(f"na_values for column {column!r}: if the file has no such column, "
+                          "pandas ignores the key and Polars fails (--data would tell)", 0.95)
+            elif column not in schema:
+                continue
+            cast = overrides[column] if overrides[column].text != "pl.String" else None
+            out.append((column, tokens, cast, dtypes[column]))
+            continue
+        if schema is None:
+            raise ctx.todo(f"na_values for column {column!r}: porter reads the column as text and "
+                           "empties its tokens, and the type pandas then infers is only known "
+                           "with --data (or give the column a dtype=)")
+        if column not in schema:
+            if "" in schema:  # an empty header: pandas names it "Unnamed: n" (renamed later)
+                raise ctx.todo(f"na_values for column {column!r} with an empty header name")
+            continue  # pandas ignores a key that names no column
+        after = ctx.input_schema("csv", _paths(source), {**options, "na_values": tokens})
+        kind = after.get(column) if after else None
+        codes = getattr(after, "polars", None) or {}
+        if kind == "str":
+            out.append((column, tokens, None, "str"))
+        elif kind in ("int", "float") and codes.get(column):
+            out.append((column, tokens, emit.atom(codes[column]), kind))
+        else:
+            raise ctx.todo(f"na_values for column {column!r}: what is left reads as "
+                           f"{kind or 'a type porter does not know'}, which porter does not "
+                           "cast from text")
+    return out
 
 
 def check_source(source: Value, ctx: RuleContext) -> None:

@@ -71,7 +71,7 @@ def na_value_texts(values: list[Any]) -> list[str]:
             spellings.append(repr(number))
             if number.is_integer():
                 spellings.append(str(int(number)))
-        texts += [t for t in spellings if t not in texts]
+        texts += [t for t in dict.fromkeys(spellings) if t not in texts]
     return texts
 
 
