@@ -534,3 +534,15 @@ def test_naive_polars_division_differs_from_pandas() -> None:
     assert divided(pl.col("d") / pl.duration(days=1)) == [0.20833333333333331] * 2
     assert divided(pl.col("d").dt.total_microseconds() / 86_400_000_000) == [0.20833333333333331] * 2
     assert divided(pl.col("d") / (pl.col("d") * 0 + pl.duration(days=1))) == [0.20833333333333334] * 2
+
+
+def test_durations_with_unicode_names_match_pandas() -> None:
+    # pandas is the reference implementation
+    differential(HEAD + 'df = pd.DataFrame({"départ": ["2024-02-28 22:00", None, "2024-12-31 23:59"],'
+                 ' "Ankunft ü": ["2024-03-01 01:30", "2024-03-01 00:00", "2024-12-31 23:00"]})\n'
+                 'df["départ"] = pd.to_datetime(df["départ"], format="%Y-%m-%d %H:%M")\n'
+                 'df["Ankunft ü"] = pd.to_datetime(df["Ankunft ü"], format="%Y-%m-%d %H:%M")\n'
+                 'df["Dauer (h)"] = (df["Ankunft ü"] - df["départ"]) / pd.Timedelta(hours=1)\n'
+                 'df["Tage"] = (df["Ankunft ü"] - df["départ"]).dt.days\n'
+                 'df["spät"] = df["Ankunft ü"] - df["départ"] > pd.Timedelta("1h")\n'
+                 'result = df[df["spät"]]\nevery = df\n', "result", "every")
