@@ -237,9 +237,9 @@ def _emptied_columns(per_column: dict[str, list[str]], schema: Any, overrides: d
             out.append((column, tokens, cast, dtypes[column]))
             continue
         if schema is None:
-            raise ctx.todo(f"na_values for column {column!r}: porter reads the column as text and "
-                           "empties its tokens, and the type pandas then infers is only known "
-                           "with --data (or give the column a dtype=)")
+            raise ctx.todo(f"na_values per column ({column!r}): porter reads the column as text "
+                           "and empties its tokens, and the type pandas then infers is only "
+                           "known with --data (or give the column a dtype=)")
         if column not in schema:
             if "" in schema:  # an empty header: pandas names it "Unnamed: n" (renamed later)
                 raise ctx.todo(f"na_values for column {column!r} with an empty header name")
