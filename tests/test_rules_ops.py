@@ -200,3 +200,37 @@ def test_comparison_with_a_date_string_lowers_confidence() -> None:
     result = convert(FRAME + 'r = df[df["a"] > "2024-01-01"]\n')
     site = next(s for s in result.sites if s.key == "series.compare")
     assert site.confidence <= 0.7
+
+
+def test_division_by_one_value_divides_like_pandas() -> None:
+    # Polars multiplies by the reciprocal of a single divisor; pandas divides. Checked where the
+    # last binary digit shows: halves divided by 100 and rounded to cents (1.6% flipped), a
+    # quotient multiplied back (x / 7 * 7 == x held for 1434 of 2000 halves, 1871 in pandas),
+    # and shares of a total.
+    differential("""
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"x": np.arange(0, 2000) / 2.0})
+df.loc[3, "x"] = np.nan
+total = df["x"].sum()
+df["cents"] = (df["x"] / 100).round(2)
+df["back"] = df["x"] / 7 * 7 == df["x"]
+df["share"] = (df["x"] / total * 1e7).round(2)
+df["share_of_sum"] = (df["x"] / df["x"].sum() * 1e7).round(2)
+df["by_lambda"] = df["x"].map(lambda v: v / 100)
+df["half"] = df["x"] / 2
+result = df
+""")
+
+
+def test_builtin_round_of_a_float_in_a_lambda_is_lowered() -> None:
+    # Python's round(0.005, 2) is 0.01 (the exact binary value is above the half); Series.round
+    # and Polars give 0.0 (pandas 3.1, Python 3.11): the two differ on values with a 5 after
+    # the last kept decimal
+    import pandas as pd
+    assert round(0.5 / 100, 2) == 0.01
+    assert pd.Series([0.5 / 100]).round(2).iloc[0] == 0.0
+    from support import convert
+    result = convert(FRAME + 'df["r"] = df["a"].map(lambda v: round(v / 3, 2))\n')
+    site = next(s for s in result.sites if s.key == "series.map")
+    assert site.confidence <= 0.85 and "round" in site.message

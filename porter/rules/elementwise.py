@@ -329,6 +329,12 @@ def element_number(call: PandasCall, ctx: RuleContext) -> Value:
         return _value(element, element.code.method("round", 0), dtype="float")
     if not isinstance(digits, int) or digits < 0:
         raise Unsupported("negative digits")
+    if element.dtype != "int":
+        # round(0.005, 2) is 0.01: Python rounds the exact binary value; Polars (and pandas'
+        # Series.round) scale by 10**n first (0.5, rounded to even: 0.0)
+        ctx.lower("Python's round() rounds a float's exact binary value, Polars rounds it scaled "
+                  "by 10**n: a value written with a 5 in the next decimal (0.005, 2.675) can "
+                  "round the other way", 0.85)
     return _value(element, element.code.method("round", digits), dtype=element.dtype)
 
 

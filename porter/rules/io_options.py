@@ -27,6 +27,16 @@ PANDAS_CSV_DATETIMES = (
 )
 """
 
+# A function, defined once at the top of a converted script, that divides as pandas divides.
+DIVIDE_FUNCTION = "pandas_div"
+DIVIDE_DEFINITION = """\
+def pandas_div(numerator, divisor):
+    \"\"\"numerator / divisor, each value divided as pandas divides it: Polars multiplies by the
+    reciprocal of a single divisor, which can be one binary digit off the quotient (and a later
+    round() then goes the other way).\"\"\"
+    return numerator / (numerator.is_null() * 0 + divisor)
+"""
+
 # dtype spellings in read_csv(dtype=...) / astype(...) → (Polars dtype code, porter dtype name)
 DTYPES: dict[str, tuple[str, str]] = {
     "str": ("pl.String", "str"), "string": ("pl.String", "str"), "object": ("pl.String", "str"),

@@ -14,6 +14,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.datetimes import is_timedelta, timedelta_arithmetic
+from porter.rules.io_options import DIVIDE_FUNCTION
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, derive, derived_column, value_dtype,
 )
@@ -68,6 +69,10 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
         return derived_column(column, emit.binop(lcode, "|", rcode), dtype="bool", others=[left, right])
     if op == "/":
         code = emit.binop(lcode, "/", rcode)
+        if _single_divisor(right) and not _exact_reciprocal(right):
+            # Polars multiplies by the reciprocal of a single divisor: one binary digit off
+            # pandas' quotient for about a third of the values (a later round() can flip)
+            code = emit.call(DIVIDE_FUNCTION, lcode, rcode)
         if not _is_nonzero_constant(right):
             code = code.method("fill_nan", None)
         dtype = "float"
@@ -81,6 +86,10 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
             ctx.lower("floor division is computed as floored true division (float result)", 0.95)
     elif op == "%":
         code = emit.binop(lcode, "%", rcode)
+        if rtype == "float" or isinstance(right, Opaque) and isinstance(right.const, float) \
+                and not right.const.is_integer():
+            ctx.lower("the remainder of a division by a fraction is computed as x - d * floor(x / d), "
+                      "which can be some binary digits off pandas' exact remainder", 0.9)
         if isinstance(right, Opaque) and right.const == 0:
             code = emit.pl("lit", None, dtype=emit.atom("pl.Float64"))  # every value is NaN
         elif not _is_nonzero_constant(right):
@@ -103,6 +112,24 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
     result = derived_column(column, code, dtype=dtype, others=[left, right], name=_result_name(left, right))
     # inside a lambda, arithmetic on the parameter is still one value: `(s + "!").upper()`
     return replace(result, element=True) if column.element else result
+
+
+def _single_divisor(value: Value) -> bool:
+    """A divisor that is one value for every row (a number, a collected scalar, an aggregate),
+    not a column of values."""
+    return not isinstance(value, Column)
+
+
+def _exact_reciprocal(value: Value) -> bool:
+    """A constant whose reciprocal is exact (a power of two) or that is 0 (x * inf is x / 0)."""
+    if not (isinstance(value, Opaque) and isinstance(value.const, (int, float))
+            and not isinstance(value.const, bool)):
+        return False
+    number = abs(float(value.const))
+    if number == 0:
+        return True
+    mantissa, _ = math.frexp(number)
+    return mantissa == 0.5 and math.isfinite(number)
 
 
 def _may_be_infinite(value: Value) -> bool:

@@ -6,7 +6,8 @@ import libcst as cst
 
 from porter.analysis.imports import ImportFacts
 from porter.rules.io_options import (
-    CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION, NA_CONSTANT, PANDAS_NA_TOKENS,
+    CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION, DIVIDE_DEFINITION, DIVIDE_FUNCTION,
+    NA_CONSTANT, PANDAS_NA_TOKENS,
 )
 
 
@@ -68,6 +69,16 @@ def fix_imports(module: cst.Module, facts: ImportFacts) -> cst.Module:
         body = _insert_at_top(body)
     if CSV_DATETIMES_CONSTANT in used and not _defines(module, CSV_DATETIMES_CONSTANT):
         body = _insert_after_imports(body, _constant(CSV_DATETIMES_DEFINITION))
+    if DIVIDE_FUNCTION in used and not _defines(module, DIVIDE_FUNCTION):
+        body = _insert_after_imports(body, _function(DIVIDE_DEFINITION))
+        at = next(i for i, node in enumerate(body) if isinstance(node, cst.FunctionDef)
+                  and node.name.value == DIVIDE_FUNCTION)
+        if at + 1 < len(body):  # two blank lines after a function, as PEP 8 has it
+            after = body[at + 1]
+            lines = list(getattr(after, "leading_lines", ()))
+            while lines and lines[0].comment is None:
+                lines.pop(0)
+            body[at + 1] = after.with_changes(leading_lines=[cst.EmptyLine(), cst.EmptyLine(), *lines])
     if NA_CONSTANT in used and not _defines(module, NA_CONSTANT):
         body = _insert_after_imports(body, _na_constant())
     return module.with_changes(body=body)
@@ -75,6 +86,8 @@ def fix_imports(module: cst.Module, facts: ImportFacts) -> cst.Module:
 
 def _defines(module: cst.Module, name: str) -> bool:
     for stmt in module.body:
+        if isinstance(stmt, cst.FunctionDef) and stmt.name.value == name:
+            return True
         if isinstance(stmt, cst.SimpleStatementLine):
             for small in stmt.body:
                 if isinstance(small, cst.Assign) and any(
@@ -97,6 +110,12 @@ def _na_constant() -> cst.SimpleStatementLine:
     assert isinstance(stmt, cst.SimpleStatementLine)
     comment = cst.Comment("# Text that pandas' read_csv reads as a missing value.")
     return stmt.with_changes(leading_lines=[cst.EmptyLine(), cst.EmptyLine(comment=comment)])
+
+
+def _function(definition: str) -> cst.BaseCompoundStatement:
+    stmt = cst.parse_module(definition).body[0]
+    assert isinstance(stmt, cst.FunctionDef)
+    return stmt.with_changes(leading_lines=[cst.EmptyLine(), cst.EmptyLine()])
 
 
 def _constant(definition: str) -> cst.SimpleStatementLine:
