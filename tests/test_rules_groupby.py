@@ -284,3 +284,18 @@ def test_pivot_table_matches_pandas(call: str) -> None:
 def test_pivot_table_todo(call: str) -> None:
     result = convert(PIVOT + f"result = {call}\n")
     assert any(s.key == "frame.pivot_table" for s in result.todos)
+
+
+def test_value_counts_normalize_divides_like_pandas():
+    # 100 kinds counted 1..100 times: Polars' reciprocal multiplication (count * (1 / total))
+    # is one binary digit off pandas' count / total for 42 of the shares; compared exactly
+    from support import run, convert
+    source = """
+import pandas as pd
+df = pd.DataFrame({"k": [f"kind {i}" for i in range(1, 101) for _ in range(i)]})
+shares = df["k"].value_counts(normalize=True)
+exact = shares.tolist()
+"""
+    converted = convert(source).converted_text
+    assert "value_counts" not in converted
+    assert run(source)["exact"] == run(converted)["exact"]

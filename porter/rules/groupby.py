@@ -8,6 +8,7 @@ from typing import Any
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
+from porter.rules.io_options import DIVIDE_FUNCTION
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_names, grouping_code,
 )
@@ -291,8 +292,9 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
         "agg", emit.pl("len").method("cast", emit.atom("pl.Int64")).method("alias", "count"))
     result_name = "count"
     if call.const("normalize", None, False):
-        counts = counts.method("select", emit.col(name), emit.binop(
-            emit.col("count"), "/", emit.col("count").method("sum")).method("alias", "proportion"))
+        # divided value by value, as pandas divides (see series.arith)
+        counts = counts.method("select", emit.col(name), emit.call(
+            DIVIDE_FUNCTION, emit.col("count"), emit.col("count").method("sum")).method("alias", "proportion"))
         result_name = "proportion"
     if call.const("sort", None, True):
         descending = not call.const("ascending", None, False)
