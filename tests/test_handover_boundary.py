@@ -226,14 +226,33 @@ def test_a_frame_pandas_made_stays_pandas_where_categories_may_be_about():
     assert "pl.from_pandas(counts)" not in convert_source(source).converted_text
 
 
-@pytest.mark.xfail(strict=True, reason="hand-over: a Polars Categorical reaches pandas with its "
-                   "categories in the order Polars met them; astype('category') sorts them, and "
-                   "pandas sorts the column by its categories")
 def test_category_columns_keep_pandas_category_order_when_handed_over():
+    # a Polars Categorical reaches pandas with its categories in the order Polars met them;
+    # astype("category") sorts them, and pandas sorts the column by its categories
     both('''
         import pandas as pd
         df = pd.read_csv("cargo.csv")
         df["kind"] = df["kind"].astype("category")
         counts = df.groupby("kind", observed=True).apply(len).reset_index()
         counts = counts.sort_values("kind")
+        ''', "counts")
+
+
+def test_a_category_series_keeps_pandas_category_order_when_handed_over():
+    both('''
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        kinds = df["kind"].astype("category")
+        order = kinds.cat.categories.tolist()
+        ''', "order")
+
+
+def test_cut_labels_keep_their_order_beside_a_category_when_handed_over():
+    both('''
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        df["kind"] = df["kind"].astype("category")
+        df["size"] = pd.cut(df["tons"], bins=[0, 2, 5, 10], labels=["small", "mid", "big"])
+        counts = df.groupby(["size", "kind"], observed=True).apply(len).reset_index()
+        counts = counts.sort_values(["size", "kind"])
         ''', "counts")

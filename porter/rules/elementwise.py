@@ -423,7 +423,7 @@ def cut(call: PandasCall, ctx: RuleContext) -> Value:
     column = call.arg("x", 0)
     if not isinstance(column, Column):
         raise Unsupported("cutting something other than a column")
-    if column.dtype in ("str", "bool", "datetime", "date", "category"):
+    if column.dtype in ("str", "bool", "datetime", "date", "category", "enum"):
         raise Unsupported(f"cutting a {column.dtype} column")
     bins = call.const("bins", 1, None, kinds=(list, tuple))
     if bins is None or not all(isinstance(b, (int, float)) and not isinstance(b, bool) for b in bins):
@@ -453,7 +453,7 @@ def cut(call: PandasCall, ctx: RuleContext) -> Value:
             else code.method("when", test).method("then", step)
     assert code is not None
     code = code.method("cast", emit.pl("Enum", list(labels)))
-    return derived_column(column, code, dtype="category")
+    return derived_column(column, code, dtype="enum")  # ordered: sorts in the labels' order
 
 
 @rule("frame.apply")

@@ -103,7 +103,7 @@ def _mixes_types(value: object, dtype: str | None) -> bool:
     if kind == "str":
         return dtype != "str"
     if kind == "number":
-        return dtype in ("str", "bool", "datetime", "date", "category")
+        return dtype in ("str", "bool", "datetime", "date", "category", "enum")
     return dtype not in ("bool",)
 
 

@@ -230,7 +230,7 @@ def _comparable(items: list[Any], dtype: str | None, ctx: RuleContext) -> list[A
     kinds = {kind(v) for v in items} - {None}
     if dtype in ("int", "float", "bool"):
         return [v for v in items if kind(v) != "str"]
-    if dtype in ("str", "category"):
+    if dtype in ("str", "category", "enum"):
         return [v for v in items if kind(v) != "number"]
     if len(kinds) > 1:
         ctx.lower("the list mixes texts and numbers and the column type is not known; pandas "
@@ -248,7 +248,7 @@ def _matches_missing(items: list[Any], dtype: str | None, ctx: RuleContext) -> b
     if dtype is None:
         ctx.lower("None in the list matches missing text but not a missing number in pandas; "
                   "the column type is not known, so it is taken to be text", 0.8)
-    return dtype in (None, "str", "category")
+    return dtype in (None, "str", "category", "enum")
 
 
 @rule("series.between")

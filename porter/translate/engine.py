@@ -862,7 +862,7 @@ def _from_pandas(name: str, frame: Frame) -> Code:
     """`pl.from_pandas(name).lazy()`; category columns come back as an Enum of pandas' own
     categories, which sorts as pandas sorts them (from_pandas makes them Categorical)."""
     code = emit.pl("from_pandas", emit.atom(name)).method("lazy")
-    categories = [c for c, t in frame.dtypes if t == "category"]
+    categories = [c for c, t in frame.dtypes if t in ("category", "enum")]
     if categories:
         code = code.method("with_columns", *(
             emit.col(c).method("cast", emit.pl("Enum", emit.atom(f"{name}[{emit.lit(c).text}].cat.categories")))
@@ -976,7 +976,7 @@ def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
     dtypes: tuple[tuple[str, str], ...] = ()
     if what in ("insert", "at", "iat", "attrs", "flags") or what.startswith(("attrs.", "flags.")):
         # the other columns keep their values: category columns are still categories
-        dtypes = tuple((c, t) for c, t in frame.dtypes if t == "category")
+        dtypes = tuple((c, t) for c, t in frame.dtypes if t in ("category", "enum"))
     target = None
     if isinstance(statement, (cst.Assign, cst.AugAssign)):
         target = statement.targets[0].target if isinstance(statement, cst.Assign) \

@@ -49,7 +49,16 @@ def collected(value: Value) -> Code:
 def to_pandas(value: Value) -> Code:
     """The pandas object this value stands for (index restored where porter tracks one)."""
     if isinstance(value, Frame):
-        code = value.code.method("collect").method("to_pandas")
+        categories = [c for c, t in value.dtypes if t == "category"]
+        code = value.code
+        if categories:
+            # a Categorical reaches pandas with its categories in the order Polars met them;
+            # as text made a category by pandas they are sorted, as astype("category") made them
+            chosen = emit.col(categories[0]) if len(categories) == 1 else emit.col(categories)
+            code = code.method("with_columns", chosen.method("cast", emit.atom("pl.String")))
+        code = code.method("collect").method("to_pandas")
+        if categories:
+            code = code.method("astype", {c: "category" for c in categories})
         if value.index:
             code = code.method("set_index", emit.names_arg(value.index))
         labels = [c for c in value.number_labels if c not in value.index
@@ -62,6 +71,9 @@ def to_pandas(value: Value) -> Code:
             name = value.name if value.name is not None else "0"
             code = (series_frame(value).method("collect").method("to_pandas")
                     .method("set_index", emit.names_arg(value.frame.index)).index(name))
+        elif value.dtype == "category":  # categories sorted, as astype("category") made them
+            code = (series_frame(value).method("collect").method("to_series")
+                    .method("cast", emit.atom("pl.String")).method("to_pandas").method("astype", "category"))
         else:
             code = series_frame(value).method("collect").method("to_series").method("to_pandas")
         # a Series pandas made without a name has none (Polars calls it "0")

@@ -41,7 +41,8 @@ class Frame(Value):
               same order, so a column of one is an expression of the other.
     columns   column names in order, when known.
     dtypes    porter's dtype names ("int", "float", "str", "bool", "datetime", "date",
-              "category") for the columns whose type is known.
+              "category" for a Polars Categorical made like astype("category"), "enum" for
+              the ordered labels of pd.cut) for the columns whose type is known.
     versions  per column, a token that changes when the column is overwritten.
     index     the columns that hold what pandas keeps in the index (after a groupby);
               empty for a default RangeIndex.
