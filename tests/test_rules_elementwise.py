@@ -149,6 +149,13 @@ COLUMNS = [
     pytest.param('df["v"].map(lambda x: abs(x))', id="abs"),
     pytest.param('df["s"].map(lambda s: s.upper(), na_action="ignore")', id="na_action ignore on text"),
     pytest.param('df["v"].map(lambda x: str(x), na_action="ignore")', id="na_action ignore keeps NaN"),
+    pytest.param('df["s"].map(lambda s: f"<{s}>")', id="f-string of text with missing values (nan)"),
+    pytest.param('df["n"].map(lambda x: f"#{x} of {7}")', id="f-string of ints and a constant"),
+    pytest.param('df["v"].map(lambda x: f"{x}kg")', id="f-string of floats with NaN"),
+    pytest.param('df["p"].map(lambda x: f"{x}!")', id="f-string of booleans"),
+    pytest.param('df["t"].map(lambda s: f"{s.strip()}|{len(s)}")', id="f-string of computed values"),
+    pytest.param('df["t"].map(lambda s: f"«{s}»\\t")', id="f-string with unicode and an escape"),
+    pytest.param("df.apply(lambda r: f\"{r['t']} ({r['n']})\", axis=1)", id="f-string of a row's fields"),
 ]
 
 
@@ -291,3 +298,28 @@ def test_numbers_in_a_row_of_numbers_are_floats_as_pandas_passes_them() -> None:
 def test_a_function_with_a_second_parameter_is_a_todo() -> None:
     result = convert(FRAME + 'def scale(x, by=2):\n    return x * by\ndf["r"] = df["v"].apply(scale)\n')
     assert any(s.key == "series.apply" for s in result.todos)
+
+
+def test_f_strings_and_str_of_datetimes_match_pandas(tmp_path, monkeypatch) -> None:
+    # str(Timestamp) has no fraction when there is none, six digits when there is; NaT is "NaT"
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "t.csv").write_text("d\n2024-01-05 00:00:00\n2024-12-31 23:59:59.250000\n\n"
+                                    "2024-02-29 10:00:00\n", encoding="utf-8")
+    differential("""
+import pandas as pd
+df = pd.read_csv("t.csv")
+df["d"] = pd.to_datetime(df["d"], format="ISO8601")
+df["on"] = df["d"].map(lambda v: f"on {v}")
+df["s"] = df["d"].map(lambda v: str(v))
+result = df
+""")
+
+
+@pytest.mark.parametrize("expr", [
+    pytest.param('df["v"].map(lambda x: f"{x:.2f}")', id="format spec"),
+    pytest.param('df["t"].map(lambda s: f"{s!r}")', id="repr conversion"),
+    pytest.param('df["t"].map(lambda s: f"{{{s}}}")', id="literal braces"),
+])
+def test_f_strings_porter_does_not_write_stay_todos(expr: str) -> None:
+    result = convert(FRAME + f'df["r"] = {expr}\nresult = df\n')
+    assert "pl.format" not in result.converted_text

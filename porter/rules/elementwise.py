@@ -294,8 +294,9 @@ def element_len(call: PandasCall, ctx: RuleContext) -> Value:
 def element_cast(call: PandasCall, ctx: RuleContext) -> Value:
     """str(x) / int(x) / float(x) in a lambda -> cast.
 
-    Handles: str() of a boolean is True/False and of a missing value "nan", as Python writes
-    them.
+    Handles: str() of a boolean is True/False, of a missing value "nan", of a datetime
+    "2024-01-05 00:00:00" (microseconds only when there are some) and of NaT "NaT", as Python
+    writes them.
     Caveats: Python writes some floats differently (1e-05, Polars 0.00001) (0.85).
     """
     element = _element(call)
@@ -304,10 +305,17 @@ def element_cast(call: PandasCall, ctx: RuleContext) -> Value:
             code = emit.pl("when", element.code).method("then", emit.pl("lit", "True")).method(
                 "when", emit.unary("~", element.code)).method("then", emit.pl("lit", "False"))
             return _value(element, code.method("otherwise", emit.pl("lit", "nan")), dtype="str")
+        if element.dtype == "datetime":
+            # str(Timestamp): seconds always, microseconds only when there are some; NaT
+            x = element.code
+            code = emit.pl("when", emit.binop(x.attr("dt").method("microsecond"), "==", 0)).method(
+                "then", x.attr("dt").method("strftime", "%Y-%m-%d %H:%M:%S")).method(
+                "otherwise", x.attr("dt").method("strftime", "%Y-%m-%d %H:%M:%S%.6f"))
+            return _value(element, code.method("fill_null", "NaT"), dtype="str")
         if element.dtype in (None, "float"):
             ctx.lower("Python's str() writes some floats (1e-05) and, without the column type, "
-                      "booleans (True) differently from Polars' text", 0.85)
-        code = element.code.method("cast", emit.atom("pl.String"))
+                      "booleans (True) and dates differently from Polars' text", 0.85)
+        code = element.code if element.dtype == "str" else element.code.method("cast", emit.atom("pl.String"))
         if element.dtype != "int":  # a missing value reaches str() as NaN: "nan"
             code = code.method("fill_null", "nan")
         return _value(element, code, dtype="str")

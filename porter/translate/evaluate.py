@@ -10,6 +10,7 @@ from __future__ import annotations
 
 from collections.abc import Callable, Mapping
 from dataclasses import dataclass, field, replace
+import ast
 import math
 from typing import Any
 
@@ -22,7 +23,7 @@ from porter.mapping import MappingTable
 from porter.model import MappingEntry, SiteDraft
 from porter.translate import handover
 from porter.translate.rewrite import BINARY_OPS, ChildRewriter, precedence
-from porter.translate.context import PandasCall, RuleContext, Unsupported
+from porter.translate.context import PandasCall, RuleContext, Unsupported, derived_column
 from porter.translate.values import (
     MISSING, Accessor, BoundMethod, Column, Frame, Grouped, Indexer, Items, Module, Opaque,
     PandasValue, Scalar, Value, is_pandas,
@@ -172,6 +173,47 @@ class Evaluator:
 
     def _eval_Lambda(self, node: cst.Lambda) -> Value:
         return self.opaque(node)
+
+    def _eval_FormattedString(self, node: cst.FormattedString) -> Value:
+        """An f-string of one value of a column (a lambda's parameter, a row's field) ->
+        pl.format: each value is written as str() writes it (element.str)."""
+        texts: list[str] = [""]
+        values: list[Value] = []
+        for part in node.parts:
+            if isinstance(part, cst.FormattedStringText):
+                texts[-1] += part.value
+                continue
+            assert isinstance(part, cst.FormattedStringExpression)
+            value = self.eval(part.expression)
+            if part.format_spec is not None or part.conversion not in (None, "s") or part.equal:
+                return self.generic(node)
+            if isinstance(value, Opaque) and isinstance(value.const, (str, int)) \
+                    and not isinstance(value.const, bool):
+                constant = str(value.const)
+                if "{" in constant or "}" in constant or "\\" in constant:
+                    return self.generic(node)
+                texts[-1] += constant
+                continue
+            values.append(value)
+            texts.append("")
+        columns = [v for v in values if isinstance(v, Column) and v.element]
+        # pl.format has no escape for a brace: a literal brace would read as a placeholder
+        if not values or len(columns) != len(values) or any("{" in t or "}" in t for t in texts):
+            return self.generic(node)
+        prefix = node.start.replace("f", "").replace("F", "")  # r"…" stays raw
+        try:
+            template = ast.literal_eval(prefix + "{}".join(texts) + node.end)
+        except (SyntaxError, ValueError):
+            return self.generic(node)
+        parts = []
+        for column in columns:
+            written = self.dispatch("element.str", PandasCall(column, "str", (), {}, node), node)
+            if not isinstance(written, Column) or any(x.status == "todo" for x in written.sites):
+                return self.generic(node)
+            parts.append(written)
+        code = emit.pl("format", template, *(p.code for p in parts))
+        return derived_column(columns[0], code, dtype="str", others=columns[1:], name=None) \
+            .with_sites(*(x for p in parts for x in p.sites))
 
     # -- attributes -----------------------------------------------------------------------------
     def _eval_Attribute(self, node: cst.Attribute) -> Value:
