@@ -470,3 +470,34 @@ def test_pandas_keeps_default_tokens_with_a_dict(tallies: Path) -> None:
     strict = pd.read_csv("tallies.csv", na_values={"count": "comp"}, keep_default_na=False)
     assert strict["note"].tolist()[2:4] == ["", "n/a"]  # no default token anywhere
     assert str(strict["count"].dtype) == "str"  # its empty field is "" (text), not missing
+
+
+def test_read_csv_skips_blank_lines_as_pandas_does(data: Path) -> None:
+    # pandas skips blank lines (skip_blank_lines=True); Polars reads each as a row of missing
+    # values. With --data porter sees them and drops those rows.
+    (data / "gaps.csv").write_text("crate,kg,note\nA,1.5,é\n\nB,,x\n\nC,2.0,\n\n",
+                                   encoding="utf-8")
+    result = differential("""
+        import pandas as pd
+        result = pd.read_csv("gaps.csv")
+        """, data_dir=str(data))
+    assert "all_horizontal" in result.converted_text
+
+
+def test_read_csv_with_blank_lines_and_empty_rows_stays_pandas(data: Path) -> None:
+    # a row of empty fields is a row of missing values in pandas too: the two cannot be told
+    # apart after Polars' scan
+    (data / "holes.csv").write_text("crate,kg\nA,1.5\n\n,\nB,2\n", encoding="utf-8")
+    (data / "spaces.csv").write_text("crate,kg\nA,1.5\n\n   \nB,2\n", encoding="utf-8")
+    for name in ("holes.csv", "spaces.csv"):
+        result = differential(f"""
+            import pandas as pd
+            result = pd.read_csv("{name}")
+            """, data_dir=str(data))
+        assert "# TODO(porter): pd.read_csv" in result.converted_text
+
+
+def test_read_csv_without_data_names_blank_lines_in_its_reason() -> None:
+    result = convert('import pandas as pd\ndf = pd.read_csv("produce.csv")\n')
+    site = next(s for s in result.sites if s.key == "pd.read_csv")
+    assert "blank line" in site.message

@@ -35,6 +35,11 @@ class FileSchema(dict[str, str]):
 
     polars: dict[str, str] | None = None
     partial: bool = False  # several files' columns together: which one a read gets is not known
+    # lines pandas skips and Polars reads as a row of missing values: blank lines (True/False,
+    # None when not looked at), and whether the file also has rows whose every field is empty
+    # or missing (",,"), which pandas keeps
+    blank_lines: bool | None = None
+    empty_rows: bool = False
 
 
 def polars_code(dtype: pl.DataType) -> str | None:
@@ -65,6 +70,9 @@ def merged(schemas: list[FileSchema]) -> FileSchema | None:
                 return None
     found = FileSchema(names)
     found.polars, found.partial = codes, True
+    looked = [s.blank_lines for s in schemas]
+    found.blank_lines = None if None in looked else any(looked)
+    found.empty_rows = any(s.empty_rows for s in schemas)
     return found
 
 
@@ -101,4 +109,32 @@ class SchemaReader:
             codes = {name: polars_code(dtype) for name, dtype in schema.items()}
             if all(codes.values()):
                 found.polars = codes  # type: ignore[assignment]
+            found.blank_lines, found.empty_rows = _blank_lines(file, scan_kwargs(options))
         return found
+
+
+BLANK_SCAN_LIMIT = 256 * 1024 * 1024  # a larger sample is not read twice to look for blank lines
+
+
+def _blank_lines(file: Path, kwargs: dict[str, Any]) -> tuple[bool | None, bool]:
+    """(whether the file has blank lines after its header, whether it has lines a scan cannot
+    tell from a skipped blank line once read: every field empty or a missing-value token, or
+    only spaces); (None, False) when the file is not looked at."""
+    if file.stat().st_size > BLANK_SCAN_LIMIT:
+        return None, False
+    separator = kwargs.get("separator", ",")
+    tokens = set(kwargs.get("null_values") or ()) | {""}
+    blank = empty = False
+    try:
+        with file.open(encoding="utf-8", errors="replace", newline="") as handle:
+            lines = handle.read().splitlines()
+    except OSError:
+        return None, False
+    for line in lines[1 + int(kwargs.get("skip_rows") or 0):]:
+        if not line:
+            blank = True
+        elif not line.strip():  # skipped by pandas, a row of spaces in Polars' text columns
+            blank = empty = True
+        elif all(field.strip().strip('"') in tokens for field in line.split(separator)):
+            empty = True
+    return blank, empty

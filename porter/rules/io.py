@@ -148,6 +148,13 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     if unnamed:  # an empty header (a written index): pandas names it by its position
         code = code.method("rename", unnamed)
         schema = {unnamed.get(c, c): kind for c, kind in schema.items()}  # type: ignore[union-attr]
+    if getattr(schema, "blank_lines", False):
+        if getattr(schema, "empty_rows", False):
+            raise ctx.todo("the file has blank lines, which pandas skips and Polars reads as rows "
+                           "of missing values, beside lines of only spaces or of empty fields, "
+                           "which porter cannot tell from them after the scan")
+        # pandas skips blank lines; Polars reads each as a row of missing values
+        code = code.method("filter", emit.unary("~", emit.pl("all_horizontal", emit.atom("pl.all().is_null()"))))
     if emptied:
         # pandas empties these columns' own tokens before it infers their types
         exprs = []
@@ -175,7 +182,9 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                        dtypes=tuple({**dict(frame.dtypes), **{c: "datetime" for c in parse_dates}}.items()))
     if schema is None and not dtype:
         ctx.lower("column types are inferred from the data the same way in both, except "
-                  "integer columns with missing values (float in pandas)", 0.95)
+                  "integer columns with missing values (float in pandas); a blank line is "
+                  "skipped by pandas and read as a row of missing values by Polars (run with "
+                  "--data to have porter look)", 0.95)
     return frame
 
 
