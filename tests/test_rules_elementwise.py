@@ -323,3 +323,53 @@ result = df
 def test_f_strings_porter_does_not_write_stay_todos(expr: str) -> None:
     result = convert(FRAME + f'df["r"] = {expr}\nresult = df\n')
     assert "pl.format" not in result.converted_text
+
+
+# -- a loop over iterrows() that appends to lists ------------------------------------------------
+
+def test_iterrows_appending_to_lists_matches_pandas() -> None:
+    result = differential(FRAME + """
+names, sizes, notes = [], [], []
+for _, row in df.iterrows():
+    names.append(row["t"])
+    sizes.append(row["n"] * 2)
+    notes.append(f"{row['t'].strip()}: {row['n']} ({row['p']})")
+result = pd.DataFrame({"name": names, "size": sizes, "note": notes})
+lists = [names, sizes, notes]
+""", "result", "lists")
+    assert "iterrows" not in result.converted_text
+    assert result.converted_text.count(".collect()") == 1  # one plan for every list
+
+
+def test_iterrows_missing_values_build_the_same_frame() -> None:
+    # a missing value reaches the list as None (NaN in pandas' row): the frame is the same
+    differential(FRAME + """
+keys, values = [], []
+for _, row in df.iterrows():
+    keys.append(row["s"])
+    values.append(row["v"])
+result = pd.DataFrame({"k": keys, "v": values})
+""")
+
+
+def test_iterrows_of_a_row_of_numbers_appends_floats() -> None:
+    differential(FRAME + """
+counts = []
+for i, row in df[["n", "v"]].iterrows():
+    counts.append(row["n"])
+result = counts[:2] + [str(c) for c in counts]
+""")
+
+
+@pytest.mark.parametrize("loop", [
+    pytest.param('for i, row in df.iterrows():\n    out.append(i)\n', id="the label is read"),
+    pytest.param('for _, row in df.iterrows():\n    out.append(row["n"])\nlast = row["n"]\n',
+                 id="the row is read after the loop"),
+    pytest.param('for _, row in df.iterrows():\n    if row["n"] > 2:\n        out.append(row["n"])\n',
+                 id="a condition in the body"),
+    pytest.param('for _, row in df.iterrows():\n    out.append(row.name)\n', id="the row's label"),
+])
+def test_other_iterrows_loops_stay_pandas(loop: str) -> None:
+    source = FRAME + "out = []\n" + loop + "result = out\n"
+    differential(source)
+    assert "iterrows()" in convert(source).converted_text

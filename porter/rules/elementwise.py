@@ -570,3 +570,38 @@ def _uses_name(node: cst.CSTNode, name: str) -> bool:
 
     node.visit(Find())
     return bool(found)
+
+
+@rule("frame.iterrows")
+def iterrows_appends(call: PandasCall, ctx: RuleContext) -> Value:
+    """`for _, row in df.iterrows(): a.append(f(row)); b.append(g(row))` -> one select of the
+    row functions, collected once, and each list extended with its column.
+
+    The engine hands over the loop's appends as (list name, `lambda row: value`) pairs; each
+    value is read as a row function (frame.apply with axis=1). A plain `df.iterrows()` has no
+    lazy form: a TODO.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    appends = call.args[0].const if call.args and isinstance(call.args[0], Opaque) else None
+    if not appends:
+        raise Unsupported("only a loop whose body appends one value per row to lists is ported")
+    columns: list[tuple[str, Code]] = []
+    for name, function in appends:
+        apply = PandasCall(frame, "apply", (Opaque(Code("_"), node=function),),
+                           {"axis": Opaque(emit.lit(1), const=1)})
+        value = frame_apply(apply, ctx)
+        if not isinstance(value, Column) or value.frame.rows != frame.rows:
+            raise Unsupported(f"the value appended to {name} has no expression form")
+        columns.append((name, value.code))
+    ctx.lower("a missing value reaches the list as None, where pandas' row gives NaN or NaT", 0.9)
+    # the statements that replace the loop, as (name assigned or None, code)
+    if len(columns) == 1:
+        name, code = columns[0]
+        values = frame.code.method("select", code).method("collect").method("to_series").method("to_list")
+        return Opaque(Code(name), const=((None, emit.atom(name).method("extend", values)),))
+    collected = frame.code.method("select", **{name: code for name, code in columns}).method("collect")
+    statements: list[tuple[str | None, Code]] = [("row_values", collected)]
+    statements += [(None, emit.atom(name).method("extend", emit.atom("row_values").index(name).method("to_list")))
+                   for name, _ in columns]
+    return Opaque(Code("row_values"), const=tuple(statements))

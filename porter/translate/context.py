@@ -139,7 +139,8 @@ class RuleContext:
         """Lower this site's confidence, saying why."""
         if to < self.confidence:
             self.confidence = to
-        self.reasons.append(reason)
+        if reason not in self.reasons:
+            self.reasons.append(reason)
 
     def todo(self, reason: str) -> Unsupported:
         return Unsupported(reason)

@@ -77,6 +77,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
         return before.isalnum() or before == "_"
 
     services.code_for = module.code_for_node
+    services.name_uses = _name_uses(module)
     services.position = position
     services.glued = glued
     services.mutated = mutated_names(module)
@@ -266,6 +267,10 @@ class _Walker:
             _merge(env_body, env_else)
 
     def loop(self, stmt: cst.For | cst.While, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
+        if isinstance(stmt, cst.For):
+            appended = self.iterrows_appends(stmt, env, indent)
+            if appended is not None:
+                return appended, env
         changes: dict[str, Any] = {}
         if isinstance(stmt, cst.For):
             iter_value = self.evaluate(stmt.iter, env)
@@ -311,6 +316,48 @@ class _Walker:
                 _after_loop(_merge(widened, after), handed)
         return [stmt.with_changes(**changes)], \
             _after_loop(_merge(env if not before else widened, after), handed)
+
+    def iterrows_appends(self, stmt: cst.For, env: dict[str, Value], indent: str) -> list[Any] | None:
+        """`for _, row in df.iterrows():` whose body only appends one value per row to lists
+        (frame.iterrows): the statements that fill the lists from one select; None for any
+        other loop."""
+        found = _row_appends(stmt)
+        if found is None:
+            return None
+        label, row, appends = found
+        body = self.services.code_for(stmt.body)
+        reads = _name_counts(stmt.body)
+        uses = self.services.name_uses
+        if reads.get(label, 0) or (label != "_" and uses.get(label, 0) > 1) \
+                or uses.get(row, 0) != reads.get(row, 0) + 1 \
+                or any(is_pandas(env.get(name)) or name in (label, row) for name, _ in appends) \
+                or len({name for name, _ in appends}) != len(appends):
+            return None  # the label or the row is read, or the lists are not plain names
+        assert isinstance(stmt.iter, cst.Call) and isinstance(stmt.iter.func, cst.Attribute)
+        evaluator = Evaluator(env, self.services)
+        frame = evaluator.eval(stmt.iter.func.value)
+        if not isinstance(frame, Frame) or not body:
+            return None
+        functions = tuple((name, cst.Lambda(params=cst.Parameters(params=[cst.Param(cst.Name(row))]),
+                                            body=value)) for name, value in appends)
+        call = PandasCall(frame, "iterrows", (Opaque(Code(""), const=functions),), node=stmt.iter)
+        self.current_small = stmt
+        result = evaluator.dispatch("frame.iterrows", call, stmt.iter)
+        if not isinstance(result, Opaque) or not isinstance(result.const, tuple) \
+                or any(site.status == "todo" for site in result.sites):
+            return None
+        self.record(result.sites)
+        if not self.emit_code:
+            return [stmt]
+        self.statement_key = id(stmt)
+        lines = []
+        for target, code in result.const:
+            text = emit.layout_chain(code, indent, f"{target} = " if target else "")
+            self.count_consumers(text, env, id(stmt))
+            lines.append(text)
+        statements = list(cst.parse_module("\n".join(lines) + "\n").body)
+        statements[0] = statements[0].with_changes(leading_lines=stmt.leading_lines)
+        return statements
 
     def header(self, expr: cst.BaseExpression, env: dict[str, Value], owner: cst.CSTNode,
                value: Value | None = None) -> cst.BaseExpression:
@@ -834,6 +881,54 @@ def _mutating_calls(stmt: cst.CSTNode) -> list[tuple[str, str]]:
     return found
 
 
+def _row_appends(stmt: cst.For) -> tuple[str, str, list[tuple[str, cst.BaseExpression]]] | None:
+    """(label name, row name, [(list name, appended value)]) of `for label, row in
+    x.iterrows():` whose body only appends one value to a list per line; None otherwise."""
+    it, target = stmt.iter, stmt.target
+    if not (isinstance(it, cst.Call) and not it.args and isinstance(it.func, cst.Attribute)
+            and it.func.attr.value == "iterrows" and isinstance(target, cst.Tuple)
+            and len(target.elements) == 2
+            and all(isinstance(e.value, cst.Name) for e in target.elements)
+            and stmt.orelse is None and isinstance(stmt.body, cst.IndentedBlock)):
+        return None
+    label, row = (e.value.value for e in target.elements)  # type: ignore[attr-defined]
+    appends: list[tuple[str, cst.BaseExpression]] = []
+    for line in stmt.body.body:
+        if not (isinstance(line, cst.SimpleStatementLine) and len(line.body) == 1
+                and isinstance(line.body[0], cst.Expr)):
+            return None
+        call = line.body[0].value
+        if not (isinstance(call, cst.Call) and isinstance(call.func, cst.Attribute)
+                and call.func.attr.value == "append" and isinstance(call.func.value, cst.Name)
+                and len(call.args) == 1 and call.args[0].keyword is None and not call.args[0].star):
+            return None
+        appends.append((call.func.value.value, call.args[0].value))
+    return (label, row, appends) if appends else None
+
+
+def _name_counts(node: cst.CSTNode) -> dict[str, int]:
+    """How many times each name is written in `node` (attribute names and keywords aside)."""
+    counts: dict[str, int] = {}
+
+    class Count(cst.CSTVisitor):
+        def visit_Name(self, n: cst.Name) -> None:
+            counts[n.value] = counts.get(n.value, 0) + 1
+
+        def visit_Attribute(self, n: cst.Attribute) -> bool:
+            n.value.visit(self)
+            return False
+
+        def visit_Arg(self, n: cst.Arg) -> bool:
+            n.value.visit(self)
+            return False
+
+    node.visit(Count())
+    return counts
+
+
+_name_uses = _name_counts
+
+
 _PLAIN_FRAME_METHODS = {"reset_index", "merge", "merge_asof", "merge_ordered"}
 
 
@@ -1030,6 +1125,8 @@ def _is_collected(code: Code) -> bool:
     if code.text.endswith(".collect().lazy()"):
         return True
     base = code.base if code.base is not None else code.text
+    if base.startswith("pl.from_pandas(") and [s.strip() for s in code.steps] == [".lazy()"]:
+        return True  # a frame pandas made: in memory already
     return base.startswith("pl.LazyFrame(") and not code.steps
 
 

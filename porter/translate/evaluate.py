@@ -75,6 +75,8 @@ class Services:
     # the script may make category columns (astype("category"), cut, a parquet file): a frame
     # pandas made comes back to Polars only when porter knows which columns are categories
     categories_possible: bool = True
+    # how many times each name is written in the module (a loop's row read after the loop)
+    name_uses: dict[str, int] = field(default_factory=dict)
     # the rows of frames read from files: counting them again needs no more than the scan
     file_rows: set[int] = field(default_factory=set)
     # the bindings whose frames each binding's plan reads (`b = a.filter(...)`: a -> b)

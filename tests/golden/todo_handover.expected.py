@@ -22,7 +22,8 @@ pivot = cheeses.collect().to_pandas().pivot_table(
     aggfunc="sum",
 )
 pivot.to_csv("cellar_pivot.csv")
-# TODO(porter): frame.iterrows: row loops have no lazy form: express the loop body as column
-#   expressions, or collect and use iter_rows(named=True)
+# TODO(porter): frame.iterrows: only a loop whose body appends one value per row to lists is ported;
+#   row loops have no lazy form: express the loop body as column expressions, or collect and use
+#   iter_rows(named=True)
 for _, row in cheeses.collect().to_pandas().iterrows():
     print(row["name"])

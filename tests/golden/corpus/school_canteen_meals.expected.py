@@ -81,18 +81,27 @@ risky = served.filter(
     pl.col("menu").is_in(["meat", "fish"]) & pl.col("allergen").is_not_null(),
 )
 dates, pupils, notes = [], [], []
-# TODO(porter): frame.iterrows: row loops have no lazy form: express the loop body as column
-#   expressions, or collect and use iter_rows(named=True)
-for _, row in risky.collect().to_pandas().iterrows():
-    dates.append(row["served_on"])
-    pupils.append(row["pupil_id"])
-    notes.append(f"{row['class_group']}: {row['menu']} plate, check {row['allergen']}")
+row_values = (
+    risky
+    .select(
+        dates=pl.col("served_on"),
+        pupils=pl.col("pupil_id"),
+        notes=pl.format(
+            "{}: {} plate, check {}",
+            pl.col("class_group").fill_null("nan"),
+            pl.col("menu").cast(pl.String).fill_null("nan"),
+            pl.col("allergen").cast(pl.String).fill_null("nan"),
+        ),
+    )
+    .collect()
+)
+dates.extend(row_values["dates"].to_list())
+pupils.extend(row_values["pupils"].to_list())
+notes.extend(row_values["notes"].to_list())
 alerts = (
     pl.from_pandas(
         pd.DataFrame({"served_on": dates, "pupil_id": pupils, "note": notes}),
     )
-    .lazy()
-    .collect()
     .lazy()
 )
 alerts.sink_csv("allergen_alerts.csv")
