@@ -256,3 +256,21 @@ def test_cut_labels_keep_their_order_beside_a_category_when_handed_over():
         counts = df.groupby(["size", "kind"], observed=True).apply(len).reset_index()
         counts = counts.sort_values(["size", "kind"])
         ''', "counts")
+
+
+def test_columns_made_while_the_frame_is_on_pandas_come_back_with_it():
+    # three statements on the handed-over frame each add a column; the frame (whose columns
+    # porter knows) comes back to Polars with all three, so `df.code` after the filter is a
+    # column, not an unknown attribute
+    text = both('''
+        import pandas as pd
+        df = pd.DataFrame({"kind": ["grain", "timber", "salt", "ö"], "tons": [5.0, None, 7.25, 2.0]})
+        parts = df["kind"].str.extract(r"(\\w)(\\w)(\\w*)")
+        df["first"] = parts[0]
+        df["second"] = parts[1].str.upper()
+        df["code"] = parts[2].str.len()
+        df = df[df["tons"].notna()]
+        short = df[df.code < 4]
+        ''', "short")
+    assert "pl.from_pandas(df)" in text
+    assert "TODO(porter): frame.getattr" not in text

@@ -464,10 +464,27 @@ class _Walker:
     def small(self, stmt: cst.BaseSmallStatement, env: dict[str, Value], indent: str) -> tuple[str | None, list[SiteDraft]]:
         """Rewrite one small statement; None when it stays as written."""
         back = self.back_to_polars(stmt, env, indent)
+        waiting = {n: v for n, v in env.items() if isinstance(v, PandasValue) and v.frame is not None}
         text, sites = back if back is not None else self.rewrite_small(stmt, env, indent)
+        if back is None:
+            self.still_on_pandas(stmt, env, waiting)
         if text is not None and _same_code(text, self.services.code_for(stmt)):
             return None, sites  # only the layout would change: the statement stays as written
         return text, sites
+
+    def still_on_pandas(self, stmt: cst.BaseSmallStatement, env: dict[str, Value],
+                        waiting: dict[str, PandasValue]) -> None:
+        """A statement kept on pandas that changes a frame waiting to come back to Polars
+        (`df["c"] = ...` on the handed-over frame): what porter knows of it follows the change,
+        so the frame comes back with every column pandas gave it."""
+        changed = [_root_and_path(t) for t in _changed_targets(stmt)] + _mutating_calls(stmt)
+        for name, what in changed:
+            before = waiting.get(name) if name is not None else None
+            if before is None or env.get(name) is not before:
+                continue  # not waiting, or rebound by the statement itself
+            assert name is not None
+            what = "" if what in ("setitem", "loc", "iloc") else what
+            env[name] = PandasValue(emit.atom(name), frame=_after_change(name, before.frame, stmt, what))
 
     def back_to_polars(self, stmt: cst.BaseSmallStatement, env: dict[str, Value],
                        indent: str) -> tuple[str | None, list[SiteDraft]] | None:
