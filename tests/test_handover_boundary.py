@@ -274,3 +274,58 @@ def test_columns_made_while_the_frame_is_on_pandas_come_back_with_it():
         ''', "short")
     assert "pl.from_pandas(df)" in text
     assert "TODO(porter): frame.getattr" not in text
+
+
+def test_a_loop_over_a_column_reads_pandas_values():
+    # `for x in df["c"]` had become `for x in pl.col("c")`, which Polars cannot iterate; a
+    # missing value reaches the loop as NaN, as in pandas
+    both('''
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        total = 0
+        seen = []
+        for tons in df["tons"]:
+            total += tons
+            seen.append(tons)
+        ''', "total", "seen")
+
+
+def test_a_function_that_changes_its_frame_in_place_changes_the_callers(tmp_path):
+    # `add_flags(df)` adds a column to the caller's frame; the converted function had rebound
+    # its own name, and the column was lost
+    text = both('''
+        import pandas as pd
+        def add_flags(frame, limit=4):
+            frame["heavy"] = frame["tons"] > limit
+            frame.drop(columns=["crates"], inplace=True)
+        df = pd.read_csv("cargo.csv")
+        add_flags(df, limit=2)
+        df.to_csv("out.csv", index=False)
+        ''', "df")
+    assert "add_flags(df" in text
+    pandas_text = (tmp_path / "out.csv").read_text(encoding="utf-8")
+    assert "True" in pandas_text  # the converted script wrote over it, the pandas way
+
+
+def test_two_names_for_one_frame_changed_in_place_stay_one_frame():
+    # `view = df` makes one object in pandas: a column added through view is in df too
+    both('''
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        view = df
+        view["double"] = view["crates"] * 2
+        df.loc[df["tons"] > 4, "kind"] = "heavy"
+        ''', "df", "view")
+
+
+def test_frames_changed_through_a_loop_variable_are_changed():
+    # `for frame in [a, b]: frame[...] = ...` changes a and b; the loop had run on copies
+    both('''
+        import pandas as pd
+        a = pd.read_csv("cargo.csv")
+        b = pd.read_csv("cargo.csv")
+        for frame in [a, b]:
+            frame["kg"] = frame["tons"] * 1000
+            frame.loc[frame["crates"] > 2, "kind"] = "BIG"
+        both_frames = pd.concat([a, b], ignore_index=True)
+        ''', "a", "b", "both_frames")

@@ -335,8 +335,9 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: index=False; the index columns porter tracks (after a groupby) are written first
     like pandas writes the index; sep, header, na_rep, columns.
-    Caveats: text of booleans (true/false) and datetimes (ISO `T`) differs; with the default
-    index=True on a plain frame the write is handed to pandas so the row labels are written.
+    Caveats: booleans and datetimes are written as pandas writes them (True/False, no `T`);
+    with the default index=True on a plain frame the write is handed to pandas so the row
+    labels are written.
     """
     ctx.reject_unknown(call, "path_or_buf", "index", "sep", "header", "na_rep", "columns",
                        "encoding", positional=1)
@@ -395,7 +396,7 @@ def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
     kinds = {t for _, t in frame.dtypes}
     complete = frame.columns is not None and len(frame.dtypes) == len(frame.columns)
     out = []
-    if "bool" in kinds:
+    if "bool" in kinds or not complete:  # the selector finds boolean columns when it runs
         out.append(emit.atom("pl.selectors.boolean()").method(
             "replace_strict", {True: "True", False: "False"}))
     if "datetime" in kinds or (ctx.datetimes_possible and not complete):

@@ -17,7 +17,9 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.model import SiteDraft
 from porter.translate import handover, imports as import_edits
-from porter.translate.functions import discover_functions, function_definitions, learn_functions
+from porter.translate.functions import (
+    changes_in_place, discover_functions, function_definitions, learn_functions,
+)
 from porter.translate.writes import batch_writes, is_sink_text
 from porter.translate.context import PandasCall, grouping_code
 from porter.translate.evaluate import Evaluator, Services
@@ -78,6 +80,8 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
 
     services.code_for = module.code_for_node
     services.name_uses = _name_uses(module)
+    services.changed_in_place = {name: [position(n)[0] for n in nodes]
+                                 for name, nodes in changes_in_place(module).items()}
     services.position = position
     services.glued = glued
     services.mutated = mutated_names(module)
@@ -271,9 +275,21 @@ class _Walker:
             appended = self.iterrows_appends(stmt, env, indent)
             if appended is not None:
                 return appended, env
+            handed, site = self.frames_changed_by_a_loop(stmt, env)
+            if handed:
+                new, after = self.loop(stmt, env, unit, indent)
+                self.record((site,))
+                first = cst.parse_statement(handed[0] + "\n")
+                first = first.with_changes(
+                    leading_lines=[*new[0].leading_lines, *_todo_comments([site], first)])
+                rest = [cst.parse_statement(line + "\n") for line in handed[1:]]
+                return [first, *rest, new[0].with_changes(leading_lines=()), *new[1:]], after
         changes: dict[str, Any] = {}
         if isinstance(stmt, cst.For):
             iter_value = self.evaluate(stmt.iter, env)
+            if isinstance(iter_value, Column):
+                # a loop over a Series reads its values as pandas gives them (NaN, not None)
+                iter_value = replace(iter_value, code=handover.to_pandas(iter_value))
             changes["iter"] = self.header(stmt.iter, env, stmt, iter_value)
             loop_env = dict(env)
             pytype = "str" if _iterates_names(iter_value) else None
@@ -316,6 +332,27 @@ class _Walker:
                 _after_loop(_merge(widened, after), handed)
         return [stmt.with_changes(**changes)], \
             _after_loop(_merge(env if not before else widened, after), handed)
+
+    def frames_changed_by_a_loop(self, stmt: cst.For, env: dict[str, Value]) -> tuple[list[str], SiteDraft | None]:
+        """`for frame in [a, b]: frame["c"] = ...` changes a and b: each is handed to pandas in
+        its own name before the loop (env changed), so the loop changes them and not copies."""
+        target = stmt.target
+        items = stmt.iter.elements if isinstance(stmt.iter, (cst.List, cst.Tuple)) else ()
+        names = [e.value.value for e in items if isinstance(e.value, cst.Name)]
+        if not (isinstance(target, cst.Name) and names and len(names) == len(items)
+                and target.value in changes_in_place(stmt.body)
+                and any(isinstance(env.get(n), Frame) for n in names)):
+            return [], None
+        lines = []
+        for name in dict.fromkeys(names):
+            value = env.get(name)
+            if isinstance(value, Frame):
+                lines.append(f"{name} = {handover.to_pandas(value).text}")
+                env[name] = PandasValue(emit.atom(name), frame=_after_change(name, value, None))
+        site = SiteDraft("frame.changed_in_a_loop", "handover", "todo", 0.0,
+                         f"the loop changes {', '.join(f'`{n}`' for n in names)} in place through "
+                         "its variable: each is handed to pandas first", *self.services.position(stmt))
+        return lines, site
 
     def iterrows_appends(self, stmt: cst.For, env: dict[str, Value], indent: str) -> list[Any] | None:
         """`for _, row in df.iterrows():` whose body only appends one value per row to lists
@@ -516,6 +553,33 @@ class _Walker:
         text = text if text is not None else self.services.code_for(stmt).strip()
         return "\n".join([*handed, text]), [*handed_sites, *sites]
 
+    def changed_later(self, *names: str) -> bool:
+        """Whether the script changes one of these names' object in place after this statement
+        (or anywhere, inside a loop or a function)."""
+        here = self.services.statement_lines[1]
+        return any(line > here or self.loop_depth or self.function is not None
+                   for name in names for line in self.services.changed_in_place.get(name, ()))
+
+    def changed_by_functions(self, stmt: cst.CSTNode) -> list[tuple[str, str]]:
+        """(name, "f()") for each `f(name, ...)` in the statement where the script's own
+        function f changes that parameter in place."""
+        found: list[tuple[str, str]] = []
+        functions = self.services.functions
+
+        class Calls(cst.CSTVisitor):
+            def visit_Call(self, node: cst.Call) -> None:
+                if not isinstance(node.func, cst.Name) or node.func.value not in functions:
+                    return
+                function = functions[node.func.value]
+                for i, arg in enumerate(node.args):
+                    param = arg.keyword.value if arg.keyword is not None else (
+                        function.params[i] if i < len(function.params) and not arg.star else None)
+                    if param in function.mutated_params and isinstance(arg.value, cst.Name):
+                        found.append((arg.value.value, f"{function.name}()"))
+
+        stmt.visit(Calls())
+        return found
+
     def hand_over_changed(self, stmt: cst.BaseSmallStatement, env: dict[str, Value]) -> tuple[list[str], list[SiteDraft]]:
         """Frames and Series the statement changes in place in a way no rule rewrites
         (`df.insert(...)`, `df.at[i, "c"] = v`, `s.name = "x"`): each is handed to pandas in
@@ -526,7 +590,7 @@ class _Walker:
             value = env.get(name) if name is not None else None
             if isinstance(value, (Frame, Column)) and not _rewritten_change(target, value, stmt):
                 changed.setdefault(name, what)  # type: ignore[arg-type]
-        for name, what in _mutating_calls(stmt):
+        for name, what in [*_mutating_calls(stmt), *self.changed_by_functions(stmt)]:
             if isinstance(env.get(name), (Frame, Column)):
                 changed.setdefault(name, what)
         lines: list[str] = []
@@ -770,6 +834,18 @@ class _Walker:
     def bind(self, name: str, value: Value, env: dict[str, Value], indent: str) -> tuple[str | None, list[SiteDraft]]:
         """`name = value`: remember what the name now holds and write the assignment."""
         code = value.code
+        source = self.current_small.value if isinstance(self.current_small, cst.Assign) else None
+        if isinstance(value, Frame) and isinstance(source, cst.Name) and source.value != name \
+                and self.changed_later(name, source.value):
+            # `view = df` and one of them changed in place: both names are one object in
+            # pandas, so a change through either shows through the other. Both stay pandas.
+            original = source.value
+            lines = [f"{original} = {handover.to_pandas(value).text}", f"{name} = {original}"]
+            env[original], env[name] = PandasValue(emit.atom(original)), PandasValue(emit.atom(name))
+            site = SiteDraft("frame.alias", "handover", "todo", 0.0,
+                             f"`{name}` and `{original}` are one frame, changed in place through "
+                             "one of them: both are handed to pandas", *self.services.statement_lines)
+            return "\n".join(lines), [*value.sites, site]
         if isinstance(value, Frame):
             self.note_stale_series(name, value, env)
             self.note_parents(code, env)

@@ -51,6 +51,9 @@ class LocalFunction:
     param_consts: tuple[tuple[str, Any], ...] = ()
     # texts the calls pass for a parameter when they differ (two input files of one layout)
     param_choices: tuple[tuple[str, tuple[str, ...]], ...] = ()
+    # parameters the body changes in place (`frame["c"] = ...`): the caller's object changes,
+    # so the argument is handed to pandas in its own name and the body stays pandas for it
+    mutated_params: frozenset[str] = frozenset()
 
 
 @dataclass
@@ -75,6 +78,9 @@ class Services:
     # the script may make category columns (astype("category"), cut, a parquet file): a frame
     # pandas made comes back to Polars only when porter knows which columns are categories
     categories_possible: bool = True
+    # names whose object the script changes in place (`df["c"] = ...`, inplace=True), with the
+    # lines where it does
+    changed_in_place: dict[str, list[int]] = field(default_factory=dict)
     # how many times each name is written in the module (a loop's row read after the loop)
     name_uses: dict[str, int] = field(default_factory=dict)
     # the rows of frames read from files: counting them again needs no more than the scan

@@ -30,7 +30,57 @@ def discover_functions(module: cst.Module) -> list[LocalFunction]:
             if params.star_arg not in (None, cst.MaybeSentinel.DEFAULT) or params.star_kwarg:
                 continue
             names = tuple(p.name.value for p in (*params.posonly_params, *params.params))
-            found.append(LocalFunction(stmt.name.value, names, frozenset(), None))
+            found.append(LocalFunction(stmt.name.value, names, frozenset(), None,
+                                       mutated_params=changed_in_place(stmt) & set(names)))
+    return found
+
+
+# frame methods that change the frame they are called on (besides any call with inplace=True)
+CHANGING_METHODS = frozenset({"insert", "pop", "update", "isetitem", "popitem", "drop_duplicates",
+                              "__setitem__", "__delitem__"})
+
+
+def changed_in_place(node: cst.CSTNode) -> frozenset[str]:
+    """Names whose object the code changes in place: assigned or deleted through a subscript or
+    an attribute (`df["c"] = …`, `df.loc[m, "c"] = …`, `df.columns = …`), or given to a method
+    that changes it (`df.insert(…)`, anything with `inplace=True`)."""
+    return frozenset(changes_in_place(node))
+
+
+def changes_in_place(node: cst.CSTNode) -> dict[str, list[cst.CSTNode]]:
+    """Each name changed in place (see changed_in_place), with the nodes that change it."""
+    found: dict[str, list[cst.CSTNode]] = {}
+
+    def root(expr: cst.BaseExpression) -> None:
+        at = expr
+        while isinstance(expr, (cst.Subscript, cst.Attribute)):
+            expr = expr.value
+        if isinstance(expr, cst.Name):
+            found.setdefault(expr.value, []).append(at)
+
+    class Finder(cst.CSTVisitor):
+        def visit_AssignTarget(self, n: cst.AssignTarget) -> None:
+            if isinstance(n.target, (cst.Subscript, cst.Attribute)):
+                root(n.target)
+
+        def visit_AugAssign(self, n: cst.AugAssign) -> None:
+            if isinstance(n.target, (cst.Subscript, cst.Attribute)):
+                root(n.target)
+
+        def visit_Del(self, n: cst.Del) -> None:
+            root(n.target)
+
+        def visit_Call(self, n: cst.Call) -> None:
+            func = n.func
+            if not isinstance(func, cst.Attribute):
+                return
+            inplace = any(a.keyword is not None and a.keyword.value == "inplace"
+                          and not (isinstance(a.value, cst.Name) and a.value.value == "False")
+                          for a in n.args)
+            if inplace or func.attr.value in CHANGING_METHODS:
+                root(func.value)
+
+    node.visit(Finder())
     return found
 
 
@@ -71,6 +121,8 @@ def learn_functions(services: Services, returns: dict[str, list[Value]]) -> dict
         choices: list[tuple[str, tuple[str, ...]]] = []
         for i, param in enumerate(function.params):
             kinds = [c[i] if i < len(c) else None for c in calls]
+            if param in function.mutated_params:
+                continue  # the caller's frame changes: it is handed to pandas at each call
             if kinds and all(isinstance(k, Frame) for k in kinds):
                 frame_params.add(param)
                 shapes = {(k.columns, tuple(sorted(k.dtypes))) for k in kinds}  # type: ignore[union-attr]
