@@ -46,4 +46,9 @@ stats = pl.concat([
         pl.selectors.numeric().max().cast(pl.Float64),
     ),
 ])
-stats.rename({"index": ""}).sink_csv("season_stats.csv")
+(
+    stats
+    .rename({"index": ""})
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("season_stats.csv")
+)

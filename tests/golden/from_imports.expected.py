@@ -26,4 +26,8 @@ joined = (
         maintain_order="left_right",
     )
 )
-joined.sink_csv("huts_with_beds.csv")
+(
+    joined
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("huts_with_beds.csv")
+)

@@ -31,7 +31,13 @@ def per_route(tickets):
 def main():
     tickets = load("tickets.csv").collect().lazy()
     summary = per_route(tickets).collect().lazy()
-    summary.sink_csv("routes.csv")
+    (
+        summary
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        )
+        .sink_csv("routes.csv")
+    )
     print(
         f"{tickets.select(pl.len()).collect().item()} tickets, {summary.select(pl.len()).collect().item()} routes",
     )

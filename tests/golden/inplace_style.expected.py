@@ -13,4 +13,8 @@ meals = meals.with_columns(portions=pl.col("portions").fill_null(0))
 meals = meals.drop_nulls("dish")
 meals = meals.sort(["class_group", "dish"], nulls_last=True, maintain_order=True)
 meals = meals
-meals.sink_csv("meals_clean.csv")
+(
+    meals
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("meals_clean.csv")
+)

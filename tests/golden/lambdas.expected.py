@@ -25,4 +25,8 @@ batches = batches.with_columns(
 batches = batches.with_columns(
     tier=pl.col("grade").replace_strict(GRADES, default=pl.lit("unknown")),
 )
-batches.sink_csv("batches_named.csv")
+(
+    batches
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("batches_named.csv")
+)

@@ -22,4 +22,8 @@ hives = hives.with_columns(
     .otherwise(pl.col("label")),
 )
 watch = hives.filter(pl.col("label").ne_missing(pl.lit("strong")))
-watch.sink_csv("watch_list.csv")
+(
+    watch
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("watch_list.csv")
+)

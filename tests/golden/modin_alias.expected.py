@@ -13,4 +13,8 @@ trays = (
 )
 trays = trays.with_columns(rate=(pl.col("sprouted") / pl.col("sown")).fill_nan(None))
 best = trays.sort("rate", descending=True, nulls_last=True, maintain_order=True).head(3)
-best.sink_csv("best_trays.csv")
+(
+    best
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("best_trays.csv")
+)

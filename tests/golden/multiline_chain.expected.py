@@ -23,4 +23,9 @@ top = (
     .sort("total", descending=True, nulls_last=True, maintain_order=True)
     .head(10)
 )
-top.select("shop", "units", "total").sink_csv("top_orders.csv")
+(
+    top
+    .select("shop", "units", "total")
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("top_orders.csv")
+)

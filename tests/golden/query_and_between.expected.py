@@ -22,4 +22,8 @@ high = (
 )
 mid = meters.filter(pl.col("litres").is_between(10, 30, closed="left"))
 print(high.select(pl.len()).collect().item(), mid.select(pl.len()).collect().item())
-high.sink_csv("high_use.csv")
+(
+    high
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("high_use.csv")
+)

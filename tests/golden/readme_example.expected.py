@@ -22,4 +22,8 @@ totals = (
     .agg(pl.col("kg").sum())
     .sort("orchard")
 )
-totals.sink_csv("totals.csv")
+(
+    totals
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("totals.csv")
+)

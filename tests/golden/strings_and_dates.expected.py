@@ -28,4 +28,11 @@ visits = visits.with_columns(
 visits = visits.with_columns(weekday=pl.col("day").dt.weekday() - 1)
 long_names = visits.filter(pl.col("name").str.len_chars().cast(pl.Int64) > 10)
 weekend = visits.filter(pl.col("weekday") >= 5)
-weekend.with_columns(PANDAS_CSV_DATETIMES).sink_csv("weekend_visits.csv")
+(
+    weekend
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("weekend_visits.csv")
+)

@@ -41,4 +41,8 @@ per_branch = (
     .sort("branch")
     .select(pl.col("branch"), pl.col("size").alias("loans"))
 )
-per_branch.sink_csv("per_branch.csv")
+(
+    per_branch
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("per_branch.csv")
+)

@@ -101,7 +101,14 @@ def main():
         .collect()
         .lazy()
     )
-    ledger.with_columns(PANDAS_CSV_DATETIMES).sink_csv("ledger.csv")
+    (
+        ledger
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+        )
+        .sink_csv("ledger.csv")
+    )
     print(
         pl.concat([
             ledger.select(
@@ -145,7 +152,14 @@ def main():
         )
         .sort("section")
     )
-    sections.with_columns(PANDAS_CSV_DATETIMES).sink_csv("section_balances.csv")
+    (
+        sections
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+        )
+        .sink_csv("section_balances.csv")
+    )
 
     arrears = (
         ledger
@@ -162,7 +176,14 @@ def main():
         )
         .head(15)
     )
-    arrears.with_columns(PANDAS_CSV_DATETIMES).sink_csv("in_arrears.csv")
+    (
+        arrears
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+        )
+        .sink_csv("in_arrears.csv")
+    )
 
     methods = (
         payments

@@ -60,7 +60,14 @@ shop_stats = (
     .collect()
     .lazy()
 )
-shop_stats.with_columns(PANDAS_CSV_DATETIMES).sink_csv("shop_stats.csv")
+(
+    shop_stats
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("shop_stats.csv")
+)
 print(shop_stats.collect())
 
 typical = (
@@ -132,8 +139,22 @@ first_last = (
     )
 )
 pl.collect_all([
-    typical.with_columns(PANDAS_CSV_DATETIMES).sink_csv("typical_units.csv", lazy=True),
-    first_last.with_columns(PANDAS_CSV_DATETIMES).sink_csv("first_and_last.csv", lazy=True),
+    (
+    typical
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("typical_units.csv", lazy=True)
+),
+    (
+    first_last
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("first_and_last.csv", lazy=True)
+),
 ])
 
 least_waste = (
@@ -148,5 +169,12 @@ least_waste = (
     .collect()
     .lazy()
 )
-least_waste.with_columns(PANDAS_CSV_DATETIMES).sink_csv("least_waste.csv")
+(
+    least_waste
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("least_waste.csv")
+)
 print(least_waste.tail(3).collect())

@@ -87,7 +87,14 @@ def main():
         )
         .sort(["hive_id", "season"])
     )
-    per_hive.with_columns(PANDAS_CSV_DATETIMES).sink_csv("hive_totals.csv")
+    (
+        per_hive
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+        )
+        .sink_csv("hive_totals.csv")
+    )
 
     per_apiary = (
         harvests
@@ -113,7 +120,14 @@ def main():
         .collect()
         .lazy()
     )
-    per_apiary.with_columns(PANDAS_CSV_DATETIMES).sink_csv("apiary_totals.csv")
+    (
+        per_apiary
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+        )
+        .sink_csv("apiary_totals.csv")
+    )
     print(per_apiary.collect())
 
     stats = pl.concat([
@@ -134,7 +148,14 @@ def main():
         harvests.select("honey_kg", "moisture_pct", "frames", "varroa_per_100")
         .select(pl.lit("max").alias("index"), pl.selectors.numeric().max().cast(pl.Float64)),
     ])
-    stats.with_columns(PANDAS_CSV_DATETIMES).sink_csv("honey_describe.csv")
+    (
+        stats
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+        )
+        .sink_csv("honey_describe.csv")
+    )
 
 
 if __name__ == "__main__":

@@ -134,7 +134,14 @@ def main():
         cargo_per_m_rise=(pl.col("cargo") / pl.col("rise_m")).fill_nan(None),
     )   # Sainte-Aurèle has no rise
     by_lock = by_lock.sort(["lock_id", "month"], nulls_last=True, maintain_order=True)
-    by_lock.with_columns(PANDAS_CSV_DATETIMES).sink_csv("toll_by_lock.csv")
+    (
+        by_lock
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+        )
+        .sink_csv("toll_by_lock.csv")
+    )
 
     unpaid = (
         priced
@@ -191,7 +198,14 @@ def main():
         maintain_order=True,
     )
     owed = owed.with_columns(toll=pl.col("toll").round(2)).collect().lazy()
-    owed.with_columns(PANDAS_CSV_DATETIMES).sink_csv("owed_by_skipper.csv")
+    (
+        owed
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+        )
+        .sink_csv("owed_by_skipper.csv")
+    )
     print(owed.head(5).collect())
 
 

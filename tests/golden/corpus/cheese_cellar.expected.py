@@ -69,7 +69,14 @@ status = (
     .collect()
     .lazy()
 )
-status.with_columns(PANDAS_CSV_DATETIMES).sink_csv("wheel_status.csv")
+(
+    status
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("wheel_status.csv")
+)
 print(status.tail(5).collect())
 
 spread = (
@@ -112,7 +119,14 @@ caves = (
     )
     .with_columns(pl.selectors.float().round(2))
 )
-caves.with_columns(PANDAS_CSV_DATETIMES).sink_csv("cave_spread.csv")
+(
+    caves
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("cave_spread.csv")
+)
 
 by_recipe = (
     wheels
@@ -125,7 +139,14 @@ by_recipe = (
     .sort("recipe")
 )
 by_recipe = by_recipe.with_columns(mean_loss=pl.col("mean_loss").round(2))
-by_recipe.with_columns(PANDAS_CSV_DATETIMES).sink_csv("recipe_loss.csv")
+(
+    by_recipe
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("recipe_loss.csv")
+)
 print(
     wheels.select(pl.col("status"))
     .drop_nulls()

@@ -107,13 +107,23 @@ class_counts = (
     .agg(pl.len().cast(pl.Int64).alias("count"))
     .sort("count", descending=True, maintain_order=True)
 )
-class_counts.with_columns(PANDAS_CSV_DATETIMES).sink_csv("fare_classes.csv")
+(
+    class_counts
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("fare_classes.csv")
+)
 
 weekend = tickets.filter(pl.col("weekday") >= 5).collect().lazy()
 (
     weekend
     .select("ticket_no", "sail_date", "route_code", "passengers", "revenue")
-    .with_columns(PANDAS_CSV_DATETIMES)
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
     .sink_csv("weekend_sailings.csv")
 )
 print(

@@ -95,7 +95,14 @@ def main():
         .collect()
         .lazy()
     )
-    suspicious.with_columns(PANDAS_CSV_DATETIMES).sink_csv("suspicious_readings.csv")
+    (
+        suspicious
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+        )
+        .sink_csv("suspicious_readings.csv")
+    )
 
     good = readings.filter(~pl.col("suspicious") & pl.col("exposed_cm").is_not_null())
     per_stake = (
@@ -141,7 +148,14 @@ def main():
         .collect()
         .lazy()
     )
-    per_stake.with_columns(PANDAS_CSV_DATETIMES).sink_csv("stake_melt.csv")
+    (
+        per_stake
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+        )
+        .sink_csv("stake_melt.csv")
+    )
 
     per_zone = per_stake.drop_nulls("zone").group_by("zone")
     per_zone = (

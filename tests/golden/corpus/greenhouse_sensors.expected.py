@@ -47,7 +47,10 @@ gaps = (
 (
     gaps
     .select("reading_time", "house", "temp_c", "humidity_pct")
-    .with_columns(PANDAS_CSV_DATETIMES)
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
     .sink_csv("sensor_gaps.csv")
 )
 print(gaps.select(pl.len()).collect().item(), "readings with a gap")

@@ -119,7 +119,11 @@ per_station = (
     .drop("code")
     .sort("burn_share", descending=True, nulls_last=True, maintain_order=True)
 )
-per_station.sink_csv("station_oil.csv")
+(
+    per_station
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("station_oil.csv")
+)
 
 # --- foggy watches, for the harbour master
 foggy = log.filter(
@@ -141,7 +145,11 @@ foggy = (
     .collect()
     .lazy()
 )
-foggy.sink_csv("data/foggy_watches.csv")
+(
+    foggy
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("data/foggy_watches.csv")
+)
 
 # --- who kept the foggy watches
 by_keeper = (

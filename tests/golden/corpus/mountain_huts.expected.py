@@ -88,7 +88,14 @@ grid = (
     .fill_null(0)
     .lazy()
 )
-grid.with_columns(PANDAS_CSV_DATETIMES).sink_csv("hut_month_grid.csv")
+(
+    grid
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("hut_month_grid.csv")
+)
 
 unpaid = (
     stays
@@ -106,7 +113,14 @@ unpaid = (
     .collect()
     .lazy()
 )
-unpaid.with_columns(PANDAS_CSV_DATETIMES).sink_csv("unpaid_half_board.csv")
+(
+    unpaid
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("unpaid_half_board.csv")
+)
 print(
     unpaid.select(pl.len()).collect().item(),
     round(stays.select(pl.col("paid_eur").sum()).collect().item(), 2),

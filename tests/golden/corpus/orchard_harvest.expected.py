@@ -87,7 +87,14 @@ premium = (
     .collect()
     .lazy()
 )
-premium.with_columns(PANDAS_CSV_DATETIMES).sink_csv("premium_by_grower.csv")
+(
+    premium
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("premium_by_grower.csv")
+)
 print(premium.head(5).collect())
 
 monthly = (
@@ -115,7 +122,14 @@ monthly = (
     .collect()
     .lazy()
 )
-monthly.with_columns(PANDAS_CSV_DATETIMES).sink_csv("monthly_revenue.csv")
+(
+    monthly
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("monthly_revenue.csv")
+)
 
 total = monthly.select(pl.col("revenue").sum()).collect().item()
 print(f"season revenue: {total:.2f}")

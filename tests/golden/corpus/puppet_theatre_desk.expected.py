@@ -107,14 +107,28 @@ per_show = (
     .collect()
     .lazy()
 )
-per_show.with_columns(PANDAS_CSV_DATETIMES).sink_csv("show_report.csv")
+(
+    per_show
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("show_report.csv")
+)
 
 busy = (
     per_show
     .filter(pl.col("fill_rate") >= 0.5)
     .select("show_id", "title", "show_date", "tickets", "fill_rate")
 )
-busy.with_columns(PANDAS_CSV_DATETIMES).sink_csv("data/busy_shows.csv")
+(
+    busy
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("data/busy_shows.csv")
+)
 
 # same title on two dates: add them up
 per_title = (
@@ -153,7 +167,10 @@ till = till.with_columns(takings=pl.col("takings").round(2))
         nulls_last=True,
         maintain_order=True,
     )
-    .with_columns(PANDAS_CSV_DATETIMES)
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
     .sink_csv("till_mix.csv")
 )
 print(

@@ -86,7 +86,11 @@ per_material = (
         maintain_order=True,
     )
 )
-per_material.sink_csv("material_totals.csv")
+(
+    per_material
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("material_totals.csv")
+)
 
 heavy = drops.filter(
     pl.col("weight_kg").is_between(20, 60) & pl.col("material").is_in(["glass", "metal"]),
@@ -111,7 +115,11 @@ heavy_households = (
     .collect()
     .lazy()
 )
-heavy_households.sink_csv("heavy_households.csv")
+(
+    heavy_households
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("heavy_households.csv")
+)
 print(heavy_households.head(5).collect())
 
 household_kg = (
@@ -142,7 +150,11 @@ first_visit = (
     .collect()
     .lazy()
 )
-first_visit.sink_csv("household_first_visit.csv")
+(
+    first_visit
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("household_first_visit.csv")
+)
 print(
     first_visit.tail(3).collect(),
     drops.select(pl.col("weight_kg").sum()).collect().item(),

@@ -64,7 +64,11 @@ per_class = (
     .sort("class_group")
 )
 per_class = per_class.with_columns(cost=pl.col("cost").round(2))
-per_class.sink_csv("class_costs.csv")
+(
+    per_class
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("class_costs.csv")
+)
 
 menu_mix = (
     served
@@ -74,7 +78,11 @@ menu_mix = (
     .sort(["class_group", "menu"])
 )
 menu_mix = menu_mix.rename({"pupil_id": "meals"})
-menu_mix.sink_csv("menu_mix.csv")
+(
+    menu_mix
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("menu_mix.csv")
+)
 
 # the kitchen wants a plain list of plates to check by hand
 risky = served.filter(
@@ -104,5 +112,9 @@ alerts = (
     )
     .lazy()
 )
-alerts.sink_csv("allergen_alerts.csv")
+(
+    alerts
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("allergen_alerts.csv")
+)
 print(alerts.head(5).collect())

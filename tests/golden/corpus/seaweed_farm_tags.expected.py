@@ -107,7 +107,14 @@ per_line = (
 )
 per_line = per_line.with_columns(wet_per_m=pl.col("wet_per_m").round(3))
 per_line = per_line.with_columns(dry_kg=pl.col("dry_kg").round(2))
-per_line.with_columns(PANDAS_CSV_DATETIMES).sink_csv("line_yield.csv")
+(
+    per_line
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("line_yield.csv")
+)
 
 weekly = (
     tags
@@ -123,7 +130,14 @@ weekly = (
 )
 weekly = weekly.with_columns(mean_ratio=pl.col("mean_ratio").round(4))
 weekly = weekly.sort(["species", "week"], nulls_last=True, maintain_order=True)
-weekly.with_columns(PANDAS_CSV_DATETIMES).sink_csv("species_weeks.csv")
+(
+    weekly
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("species_weeks.csv")
+)
 
 unread = (
     unread
@@ -132,7 +146,14 @@ unread = (
     .collect()
     .lazy()
 )
-unread.with_columns(PANDAS_CSV_DATETIMES).sink_csv("data/unread_tags.csv")
+(
+    unread
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+    )
+    .sink_csv("data/unread_tags.csv")
+)
 print(unread.select(pl.len()).collect().item(), "bags without a readable tag")
 print(
     tags.drop_nulls("harvester")

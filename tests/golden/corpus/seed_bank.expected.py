@@ -84,7 +84,11 @@ registry = (
 rated = attach_registry(tests, registry).collect().lazy()
 print(tests.select(pl.len()).collect().item(), rated.select(pl.len()).collect().item())
 
-species_summary(rated).sink_csv("species_rates.csv")
+(
+    species_summary(rated)
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("species_rates.csv")
+)
 
 top = (
     rated
@@ -94,7 +98,11 @@ top = (
     .collect()
     .lazy()
 )
-top.sink_csv("top_accessions.csv")
+(
+    top
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("top_accessions.csv")
+)
 print(top.collect())
 
 weak = rated.filter((pl.col("rate") < 0.5) & (pl.col("storage") == "cold room"))
@@ -105,7 +113,11 @@ weak = (
     .collect()
     .lazy()
 )
-weak.sink_csv("weak_cold_room.csv")
+(
+    weak
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("weak_cold_room.csv")
+)
 print(
     weak.select(pl.col("accession").drop_nulls().n_unique().cast(pl.Int64))
     .collect()

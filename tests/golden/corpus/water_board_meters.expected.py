@@ -58,7 +58,11 @@ bills = df.select(
     "bill",
     "band",
 )
-bills.sink_csv("bills.csv")
+(
+    bills
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("bills.csv")
+)
 
 low = df.filter(pl.col(col).is_between(0, 5))
 print(low.select(pl.len()).collect().item(), "low users")
@@ -79,7 +83,11 @@ leaks = (
     .collect()
     .lazy()
 )
-leaks.sink_csv("suspected_leaks.csv")
+(
+    leaks
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("suspected_leaks.csv")
+)
 print(leaks.tail(3).collect())
 
 village = (
@@ -95,4 +103,8 @@ village = (
     .sort("village")
 )
 village = village.with_columns(billed=pl.col("billed").round(2))
-village.sink_csv("village_usage.csv")
+(
+    village
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("village_usage.csv")
+)
