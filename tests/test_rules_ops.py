@@ -234,3 +234,49 @@ def test_builtin_round_of_a_float_in_a_lambda_is_lowered() -> None:
     result = convert(FRAME + 'df["r"] = df["a"].map(lambda v: round(v / 3, 2))\n')
     site = next(s for s in result.sites if s.key == "series.map")
     assert site.confidence <= 0.85 and "round" in site.message
+
+
+# inf read as data and inf stored from a division: inf * 0 and inf - inf are NaN, which pandas
+# treats as missing (isna, fillna, mean skips it, sort puts it last)
+INF_FRAME = """\
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({
+    "g": ["x", "x", "y", "y", "z"],
+    "a": [np.inf, 1.0, -np.inf, 3.0, None],
+    "b": [np.inf, 2.0, np.inf, 1.0, 1.0],
+    "fee": [0, 5, 8, 0, 3],
+    "hours": [2, 0, 4, 0, 1],
+})
+"""
+
+INF_CASES = [
+    pytest.param('df["d"] = df["a"] - df["b"]', id="inf minus inf from the data"),
+    pytest.param('df["d"] = df["a"] * df["fee"]', id="inf from the data times int zero"),
+    pytest.param('df["d"] = df["b"] * 0', id="inf from the data times constant zero"),
+    pytest.param('df["d"] = df["a"] + df["b"]', id="-inf plus inf from the data"),
+    pytest.param('df["d"] = df["fee"] * np.inf', id="int zero times an inf constant"),
+    pytest.param('df["rate"] = df["fee"] / df["hours"]\ndf["d"] = df["rate"] * df["hours"]',
+                 id="stored division times zero"),
+    pytest.param('df["rate"] = df["fee"] / df["hours"]\ndf["d"] = df["rate"] - df["rate"]',
+                 id="stored division minus itself"),
+]
+
+
+@pytest.mark.parametrize("before", INF_CASES)
+def test_nan_from_inf_is_missing_like_pandas(before: str) -> None:
+    differential(INF_FRAME + before + """
+df["na"] = df["d"].isna()
+df["filled"] = df["d"].fillna(-1)
+result = df.sort_values("d", ascending=False)
+means = df.groupby("g")["d"].mean().reset_index()
+count = int(df["d"].isna().sum())
+""", "result", "means", "count")
+
+
+def test_no_nan_handling_where_types_prove_none_arises() -> None:
+    text = convert(INF_FRAME + """
+df["i"] = df["fee"] * df["hours"] - df["fee"] + 2
+df["f"] = df["a"] * 2.5 + 1
+""").converted_text
+    assert "fill_nan" not in text

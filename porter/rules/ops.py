@@ -18,7 +18,7 @@ from porter.rules.io_options import DIVIDE_FUNCTION
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, derive, derived_column, value_dtype,
 )
-from porter.translate.values import Column, Frame, Opaque, Value
+from porter.translate.values import Column, Frame, Opaque, Scalar, Value
 
 NUMERIC = {"int", "float"}
 
@@ -50,9 +50,13 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: 0/0 gives NaN in both, which porter turns into a missing value (fill_nan(None));
     integer // and % by zero give inf/NaN in pandas and null in Polars, so // is written as a
     floored true division and % is guarded; bool + bool is a logical or in pandas; inf * 0
-    and inf - inf (an operand from a division or a power) are made missing too; an operand
-    that is a Timedelta goes to datetimes.timedelta_arithmetic.
-    Caveats: NaN made from inf values already in the data is not made missing.
+    and inf - inf are made missing too wherever an operand may hold inf (a float or
+    unknown-type column, stored from a division or read from the data, or an inf constant);
+    integer and boolean operands and finite constants need nothing; an operand that is a
+    Timedelta goes to datetimes.timedelta_arithmetic.
+    Caveats: two operands of unknown type (a + b without --data) may be text or dates, where
+    fill_nan fails: left out, confidence 0.95 (for - and * only when the script makes no
+    datetimes).
     """
     left, right = call.receiver, call.args[0]
     assert left is not None
@@ -97,7 +101,13 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
     elif op in ("+", "-", "*", "**"):
         code = emit.binop(lcode, op, rcode)
         if op != "**" and _nan_possible(op, left, right):
-            code = code.method("fill_nan", None)  # inf * 0, inf - inf: NaN, missing in pandas
+            if _numeric(left) or _numeric(right) or op != "+" and not ctx.datetimes_possible:
+                code = code.method("fill_nan", None)  # inf * 0, inf - inf: NaN, missing in pandas
+            else:
+                # fill_nan fails on text and dates, which two operands of unknown type may be
+                ctx.lower("operands of unknown type: where they hold inf, inf - inf and inf * 0 "
+                          "are NaN, missing in pandas but not in Polars (fill_nan is left out: "
+                          "the values may be text or dates)", 0.95)
         if ltype in NUMERIC and rtype in NUMERIC:
             dtype = "float" if "float" in (ltype, rtype) else "int"
         elif op == "+" and "str" in (ltype, rtype):
@@ -133,22 +143,49 @@ def _exact_reciprocal(value: Value) -> bool:
 
 
 def _may_be_infinite(value: Value) -> bool:
-    """A division or a power can make ±inf (x / 0); so can an inf literal."""
-    if isinstance(value, Opaque) and isinstance(value.const, float):
-        return math.isinf(value.const)
-    return isinstance(value, Column) and (" / " in value.code.text or " ** " in value.code.text)
+    """A value that may hold ±inf: an inf constant, or a float or unknown-type column or value
+    (a column stored from a division, or inf read from the data); integers, booleans, text and
+    dates cannot."""
+    if isinstance(value, Opaque) and value.is_const:
+        return isinstance(value.const, float) and math.isinf(value.const)
+    if isinstance(value, Column):
+        return value.dtype in (None, "float")
+    if isinstance(value, (Scalar, Opaque)):
+        return value.pytype in (None, "float")
+    return True
+
+
+def _may_be_zero(value: Value) -> bool:
+    """A value that may be 0 (or False): anything but a nonzero constant or text."""
+    if isinstance(value, Opaque) and value.is_const:
+        return isinstance(value.const, (int, float)) and value.const == 0
+    if isinstance(value, Column):
+        return value.dtype != "str"
+    if isinstance(value, (Scalar, Opaque)):
+        return value.pytype != "str"
+    return True
+
+
+def _numeric(value: Value) -> bool:
+    """A value known to be a number (or a boolean): the result of arithmetic with it is a
+    number too, so fill_nan applies to it."""
+    if isinstance(value, Opaque) and value.is_const:
+        return isinstance(value.const, (int, float))
+    if isinstance(value, Column):
+        return value.dtype in ("int", "float", "bool")
+    if isinstance(value, (Scalar, Opaque)):
+        return value.pytype in ("int", "float", "bool")
+    return False
 
 
 def _nan_possible(op: str, left: Value, right: Value) -> bool:
-    """inf * 0 and inf - inf (inf + -inf) are NaN; a finite constant operand cannot make one."""
-    for inf_side, other in ((left, right), (right, left)):
-        if not _may_be_infinite(inf_side):
-            continue
-        if isinstance(other, Opaque) and isinstance(other.const, (int, float)):
-            if op == "*" and other.const == 0 or math.isinf(other.const):
-                return True
-            continue
-        return True
+    """inf * 0 and inf - inf (inf + -inf) are NaN, missing in pandas: + and - need both sides
+    possibly infinite, * one side possibly infinite and the other possibly zero."""
+    if op in ("+", "-"):
+        return _may_be_infinite(left) and _may_be_infinite(right)
+    if op == "*":
+        return _may_be_infinite(left) and _may_be_zero(right) \
+            or _may_be_infinite(right) and _may_be_zero(left)
     return False
 
 

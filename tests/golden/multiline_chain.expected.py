@@ -13,7 +13,7 @@ orders = (
         schema_overrides={"shop": pl.String},
         infer_schema_length=None,
     )
-    .with_columns(total=pl.col("units") * pl.col("price"))
+    .with_columns(total=(pl.col("units") * pl.col("price")).fill_nan(None))
     .filter(pl.col("units") > 0)
 )
 

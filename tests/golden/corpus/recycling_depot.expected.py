@@ -78,7 +78,9 @@ per_material = (
         nulls_equal=True,
         maintain_order="left_right",
     )
-    .with_columns(credit=(pl.col("kg") * pl.col("credit_per_kg")).round(2))
+    .with_columns(
+        credit=(pl.col("kg") * pl.col("credit_per_kg")).fill_nan(None).round(2),
+    )
     .sort(
         ["kg", "material"],
         descending=[True, False],

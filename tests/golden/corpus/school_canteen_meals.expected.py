@@ -33,7 +33,9 @@ meals = meals.with_columns(
 meals = meals.with_columns(
     unit_price=pl.col("tariff").replace_strict(MEAL_PRICE, default=None),
 )
-meals = meals.with_columns(cost=pl.col("portions") * pl.col("unit_price"))
+meals = meals.with_columns(
+    cost=(pl.col("portions") * pl.col("unit_price")).fill_nan(None),
+)
 meals = (
     meals
     .with_columns(second_helping=(pl.col("portions") > 1).fill_null(False))

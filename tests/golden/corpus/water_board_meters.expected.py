@@ -34,11 +34,15 @@ print((df.select(pl.len()).collect().item(), len(df.collect_schema())))
 df = df.with_columns(village=pl.col("village").str.strip_chars().str.to_uppercase())
 df = df.with_columns(tariff=pl.col("tariff").str.strip_chars().str.to_lowercase())
 df = df.with_columns(
-    usage_m3=(pl.col("current_m3") - pl.col("previous_m3")).abs().round(2),
+    usage_m3=(pl.col("current_m3") - pl.col("previous_m3")).fill_nan(None)
+    .abs()
+    .round(2),
 )
 df = df.with_columns(usage_m3=pl.col("usage_m3").clip(0, 120))
 df = df.with_columns(rate=pl.col("tariff").replace_strict(TARIFF_RATES, default=None))
-df = df.with_columns(bill=(pl.col(col) * pl.col("rate") + STANDING_CHARGE).round(2))
+df = df.with_columns(
+    bill=((pl.col(col) * pl.col("rate")).fill_nan(None) + STANDING_CHARGE).round(2),
+)
 df = (
     df
     .with_columns(
