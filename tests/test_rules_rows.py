@@ -163,6 +163,46 @@ def test_frame_matches_pandas(expr: str) -> None:
     differential(FRAME + f"result = {expr}\n")
 
 
+ISIN_NUMBERS = [
+    pytest.param('df["n"].isin([3.0, 5.0])', id="integral floats in an int column"),
+    pytest.param('df["n"].isin([33, 7.0])', id="int and float mixed in an int column"),
+    pytest.param('df["n"].isin([3.5, 4.0, np.nan])', id="fraction and NaN in an int column"),
+    pytest.param('df["n"].isin([2.5])', id="only a fraction in an int column"),
+    pytest.param('df["n"].isin([True])', id="True is 1 in an int column"),
+    pytest.param('df["v"].isin([3, 7])', id="ints in a float column"),
+    pytest.param('df["v"].isin([1, np.nan])', id="int and NaN in a float column"),
+    pytest.param('df["n"] > 2).isin([1]', id="1 is True in a bool column"),
+]
+
+
+@pytest.mark.parametrize("expr", ISIN_NUMBERS)
+def test_isin_numbers_of_another_type_match_pandas(expr: str) -> None:
+    # pandas compares numbers by value (3.0 == 3, True == 1); Polars refuses a list of another
+    # numeric type
+    differential(FRAME + f"df['r'] = ({expr})\nresult = df\n")
+
+
+def test_isin_floats_on_a_column_of_unknown_type(tmp_path, monkeypatch) -> None:
+    # without --data the column may be integer or float: compared as floats
+    (tmp_path / "d.csv").write_text("lot,n,f\nL1,3,3.0\nL2,4,\nL3,,7.5\nL4,7,33\n")
+    monkeypatch.chdir(tmp_path)
+    result = differential("""
+import pandas as pd
+df = pd.read_csv("d.csv")
+df["a"] = df["n"].isin([3.0, 5.0])
+df["b"] = df["f"].isin([33, 7.5])
+df["c"] = df["n"].isin([33, 7.0])
+result = df
+""")
+    assert 'pl.col("n").cast(pl.Float64).is_in([3.0, 5.0])' in result.converted_text
+
+
+def test_isin_whole_numbers_on_a_column_of_unknown_type_is_lowered() -> None:
+    result = convert('import pandas as pd\ndf = pd.read_csv("d.csv")\nr = df[df["n"].isin([3, 5])]\n')
+    site = next(s for s in result.sites if s.key == "series.isin")
+    assert site.confidence <= 0.95 and "float column" in site.message
+
+
 def test_isin_with_a_variable_list_holding_none() -> None:
     differential(FRAME + 'vals = ["a", None]\nresult = df[df["k"].isin(vals)]\nother = df[~df["k"].isin(vals)]\n',
                  "result", "other")

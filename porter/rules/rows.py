@@ -189,7 +189,9 @@ def isin(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: a missing value is not in the list (False in pandas, null in Polars, filled where
     it matters); NaN in the list matches missing values (nulls_equal=True), None only in a
-    text column (a missing number is NaN, not None); a list in a variable may hold either.
+    text column (a missing number is NaN, not None); a list in a variable may hold either;
+    numbers are written in the column's numeric type (pandas compares them by value, Polars
+    refuses a list of another numeric type).
     """
     column = call.receiver
     assert isinstance(column, Column)
@@ -198,7 +200,8 @@ def isin(call: PandasCall, ctx: RuleContext) -> Value:
         items = _comparable(list(values.const), column.dtype, ctx)
         has_missing = _matches_missing(items, column.dtype, ctx)
         kwargs = {"nulls_equal": True} if has_missing else {}
-        code = column.code.method("is_in", [v for v in items], **kwargs)
+        target, items = _numbers_of_column_type(column, items, ctx)
+        code = target.method("is_in", [v for v in items], **kwargs)
         return derived_column(column, code, dtype="bool", null_is_false=not has_missing)
     if isinstance(values, Opaque) and not values.is_const:
         # the list may hold None or NaN, which pandas matches against missing values
@@ -236,6 +239,35 @@ def _comparable(items: list[Any], dtype: str | None, ctx: RuleContext) -> list[A
         ctx.lower("the list mixes texts and numbers and the column type is not known; pandas "
                   "matches each against equal values only", 0.7)
     return items
+
+
+def _numbers_of_column_type(column: Column, items: list[Any], ctx: RuleContext) -> tuple[Code, list[Any]]:
+    """The numbers of the list written in the column's type: pandas compares numbers by value
+    (3.0 is in an integer column holding 3, True is 1), Polars refuses a list of another
+    numeric type. In an integer column a fraction matches nothing and is dropped."""
+    def number(v: Any) -> bool:
+        return isinstance(v, (int, float)) and v == v  # NaN stays: it stands for missing
+
+    code = column.code
+    if not any(number(v) for v in items):
+        return code, items
+    if column.dtype == "int":
+        return code, [int(v) if number(v) else v for v in items
+                      if not number(v) or float(v).is_integer()]
+    if column.dtype == "float":
+        return code, [float(v) if number(v) else v for v in items]
+    if column.dtype == "bool":
+        return code, [bool(v) if number(v) else v for v in items if not number(v) or v in (0, 1)]
+    if column.dtype is None:
+        if any(isinstance(v, float) and number(v) for v in items):
+            # a float in the list: the column may be integer or float, and Polars compares
+            # only within one type, so the column is compared as floats
+            return code.method("cast", emit.atom("pl.Float64")), \
+                [float(v) if number(v) else v for v in items]
+        if any(isinstance(v, int) and not isinstance(v, bool) for v in items):
+            ctx.lower("the list holds whole numbers and the column type is not known: Polars "
+                      "refuses to look for them in a float column (pandas compares by value)", 0.95)
+    return code, items
 
 
 def _matches_missing(items: list[Any], dtype: str | None, ctx: RuleContext) -> bool:
