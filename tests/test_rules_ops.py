@@ -280,3 +280,42 @@ df["i"] = df["fee"] * df["hours"] - df["fee"] + 2
 df["f"] = df["a"] * 2.5 + 1
 """).converted_text
     assert "fill_nan" not in text
+
+
+# a datetime column compared with text: pandas reads the text as a date ("2024-03" is the first
+# of the month, a time of day counts to the microsecond); Polars refuses to compare with text
+DATES = """\
+import pandas as pd
+df = pd.DataFrame({"ship": ["S1", "S2", "S3", "S4", "S5"],
+                   "arrive": ["2024-01-31 22:00:00.000000", "2024-03-05 10:00:00.000000", None,
+                              "2024-03-01 00:00:00.000000", "2024-03-01 06:30:15.000250"]})
+df["arrive"] = pd.to_datetime(df["arrive"], format="%Y-%m-%d %H:%M:%S.%f")
+"""
+
+DATE_CASES = [
+    pytest.param('df[df["arrive"] >= "2024-03-01"]', id=">= a date"),
+    pytest.param('df[(df["arrive"] >= "2024-03-01") & (df["arrive"] < "2024-04-01")]', id="a range"),
+    pytest.param('df[df["arrive"] < "2024-03"]', id="a month"),
+    pytest.param('df[df["arrive"] > "2024-03-01 06:30:15.00025"]', id="microseconds"),
+    pytest.param('df[df["arrive"] == "2024-03-05 10:00"]', id="== a time of day"),
+    pytest.param('df[df["arrive"] != "2024-03-01"]', id="!= keeps missing"),
+    pytest.param('df[~(df["arrive"] <= "2024/03/01")]', id="slashes, negated"),
+    pytest.param('df[df["arrive"] > "1 March 2024"]', id="written out"),
+]
+
+
+@pytest.mark.parametrize("expr", DATE_CASES)
+def test_datetime_column_compared_with_text_matches_pandas(expr: str) -> None:
+    result = differential(DATES + f"result = {expr}\n")
+    assert "pl.datetime(2024" in result.converted_text
+
+
+def test_datetime_comparison_with_parse_dates(tmp_path, monkeypatch) -> None:
+    (tmp_path / "d.csv").write_text("ship,arrive\nS1,2024-01-31 22:00:00\nS2,2024-03-05 10:00:00\n"
+                                    "S3,\nS4,2024-03-01 00:00:00\n")
+    monkeypatch.chdir(tmp_path)
+    result = differential('import pandas as pd\ndf = pd.read_csv("d.csv", parse_dates=["arrive"])\n'
+                          'result = df[df["arrive"] >= "2024-03-01"]\n')
+    assert 'pl.col("arrive") >= pl.datetime(2024, 3, 1)' in result.converted_text
+    site = next(s for s in result.sites if s.key == "series.compare")
+    assert site.confidence == 1.0

@@ -205,12 +205,18 @@ def compare(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: a comparison with a missing value is False in pandas (True for !=) and null in
     Polars; != is filled with True right away, the others are filled with False where the
-    result is negated or used as a value (a filter drops null rows like False rows).
+    result is negated or used as a value (a filter drops null rows like False rows); text
+    compared with a column known to hold datetimes is read as pandas reads it (pd.Timestamp)
+    and written as pl.datetime(...).
+    Caveats: with the column's type unknown, text that looks like a date lowers confidence
+    (0.7): pandas parses it where the column holds datetimes. Polars reads the datetime in the
+    column's unit (a column of milliseconds compared with a date holding microseconds).
     """
     left, right = call.receiver, call.args[0]
     assert left is not None
     column = base_column(left, right)
     frame = column.frame
+    left, right = _as_datetime(left, column), _as_datetime(right, column)
     lcode, rcode = operand(left, frame, ctx), operand(right, frame, ctx)
     if call.name == "!=":
         if isinstance(right, Opaque) and right.is_const and right.const is not None:
@@ -218,11 +224,37 @@ def compare(call: PandasCall, ctx: RuleContext) -> Value:
         else:
             code = emit.binop(lcode, "!=", rcode).method("fill_null", True)
         return derived_column(column, code, dtype="bool", others=[left, right])
-    if _date_like(right) and column.dtype not in ("str",):
+    if _date_like(right) and column.dtype not in ("str", "datetime"):
         ctx.lower("comparing with a date written as text: pandas parses it when the column "
                   "holds datetimes", 0.7)
     code = emit.binop(lcode, call.name, rcode)
     return derived_column(column, code, dtype="bool", null_is_false=True, others=[left, right])
+
+
+def _as_datetime(value: Value, column: Column) -> Value:
+    """Text compared with a datetime column is read as a date by pandas ("2024-03-01" is
+    midnight, "2024-03" the first of the month); Polars refuses to compare datetimes with text,
+    so the text is read here as pandas reads it and written as pl.datetime(...)."""
+    if column.dtype != "datetime" or not (isinstance(value, Opaque) and isinstance(value.const, str)):
+        return value
+    import pandas as pd
+    try:
+        stamp = pd.Timestamp(value.const)
+    except (ValueError, TypeError):
+        raise Unsupported(f"{value.const!r} is not a date pandas can read: pandas refuses the "
+                          "comparison") from None
+    if stamp is pd.NaT:
+        raise Unsupported("a comparison with NaT")
+    if stamp.tzinfo is not None:
+        raise Unsupported("a date with a time zone compared with a datetime column")
+    if stamp.nanosecond:
+        raise Unsupported("a date with nanoseconds (Polars' datetimes here hold microseconds)")
+    parts = [stamp.year, stamp.month, stamp.day, stamp.hour, stamp.minute, stamp.second,
+             stamp.microsecond]
+    while len(parts) > 3 and parts[-1] == 0:
+        parts.pop()
+    code = emit.pl("datetime", *parts)
+    return Scalar(code, pytype="datetime", expr=code)
 
 
 def _date_like(value: Value) -> bool:
