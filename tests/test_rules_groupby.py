@@ -200,6 +200,45 @@ def test_series_reduction_matches_pandas(expr: str) -> None:
     differential(FRAME + f"result = {expr}\n")
 
 
+# pandas gives NaN for the mean, min, ... of no values (an empty selection, only missing values,
+# the std of one value); the value is used as a number and written as text, where None fails
+# or reads "None"
+NO_VALUES = [
+    pytest.param('df[df["n"] > 100]["qty"].max()', id="max of an empty selection"),
+    pytest.param('df[df["n"] > 100]["qty"].min()', id="min of an empty selection"),
+    pytest.param('df[df["shop"] == "c"]["qty"].mean()', id="mean of only missing values"),
+    pytest.param('df[df["n"] > 100]["qty"].median()', id="median of an empty selection"),
+    pytest.param('df[df["n"] == 1]["qty"].std()', id="std of one value"),
+    pytest.param('df[df["n"] == 1]["qty"].var()', id="var of one value"),
+    pytest.param('df[df["n"] > 100]["qty"].quantile(0.9)', id="quantile of an empty selection"),
+    pytest.param('df[df["n"] > 100]["n"].mean()', id="mean of an empty int selection"),
+    pytest.param('df[df["n"] > 100]["n"].median()', id="median of an empty int selection"),
+    pytest.param('df[df["n"] > 1]["qty"].max()', id="max of some values"),
+    pytest.param('df[df["n"] > 1]["n"].max()', id="int max stays an int"),
+]
+
+
+@pytest.mark.parametrize("expr", NO_VALUES)
+def test_reduction_of_no_values_is_nan_like_pandas(expr: str) -> None:
+    differential(FRAME + f"value = {expr}\nresult = [value * 1.2, f\"{{value}}\", str(value)]\n")
+
+
+def test_int_max_of_no_values_is_lowered() -> None:
+    result = convert(FRAME + 'x = df[df["n"] > 100]["n"].max()\n')
+    site = next(s for s in result.sites if s.key == "series.max")
+    assert site.confidence <= 0.98 and "None here" in site.message
+    assert "fill_null" not in result.converted_text  # a NaN fill would make 8 into 8.0
+
+
+def test_reduction_inside_an_expression_keeps_missing_as_null() -> None:
+    differential(FRAME + """
+df["qty2"] = df["qty"].fillna(df[df["n"] > 100]["qty"].mean())
+df["over"] = df["qty"] > df["qty"].mean()
+result = df
+count = int(df["qty2"].isna().sum())
+""", "result", "count")
+
+
 COUNTS = [
     pytest.param('df["shop"].value_counts()', id="value_counts ties and missing"),
     pytest.param('df["n"].value_counts()', id="value_counts ints"),
@@ -299,3 +338,16 @@ exact = shares.tolist()
     converted = convert(source).converted_text
     assert "value_counts" not in converted
     assert run(source)["exact"] == run(converted)["exact"]
+
+
+def test_a_named_reduction_of_no_values_stays_missing_in_expressions() -> None:
+    differential(FRAME + """
+m = df[df["n"] > 100]["qty"].mean()
+top = df[df["n"] > 1]["qty"].max()
+df["qty2"] = df["qty"].fillna(m)
+df["scaled"] = df["qty"] * m
+df["share"] = df["qty"] / top
+result = df
+count = int(df["qty2"].isna().sum()) + int(df["scaled"].isna().sum())
+text = f"{m} {top}"
+""", "result", "count", "text")

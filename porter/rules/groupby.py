@@ -240,10 +240,18 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
 
 # -- whole-column reductions ------------------------------------------------------------------
 
-def scalar_of(column: Column, expr: Code, pytype: str | None = None) -> Scalar:
-    code = column.frame.code.method("select", expr).method("collect").method("item")
+def scalar_of(column: Column, expr: Code, pytype: str | None = None, *,
+              collected: Code | None = None) -> Scalar:
+    """A reduction of a column: `expr` inside expressions of its frame, `collected` (default
+    `expr`) as the Python value."""
+    code = column.frame.code.method("select", collected if collected is not None else expr) \
+        .method("collect").method("item")
     agg_column = Column(expr, frame=column.frame, name=column.name, refs=column.refs,
                         versions=column.versions)
+    if collected is not None and collected != expr:
+        # the Python value is NaN where pandas' is; marked float, it is made null again inside
+        # another frame's expressions (context.expr_in)
+        return Scalar(code, pytype="float", agg=agg_column)
     return Scalar(code, pytype=pytype, agg=agg_column)
 
 
@@ -252,8 +260,13 @@ def scalar_of(column: Column, expr: Code, pytype: str | None = None) -> Scalar:
 def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
     """s.sum() / mean / median / min / max / std / var / count / nunique -> a Python scalar.
 
-    Handles: missing values are skipped (nunique does not count them); std/var with ddof=1.
-    Caveats: the mean of an empty column is None in Polars, NaN in pandas.
+    Handles: missing values are skipped (nunique does not count them); std/var with ddof=1;
+    the mean, median, std, var (and the min and max of a float column) of no values (an empty
+    selection, only missing values, the std of one value) are NaN in pandas and None in
+    Polars: the Python value is made NaN (fill_null(float("nan"))).
+    Caveats: the min/max of no values of an integer, boolean or unknown-type column is NaN in
+    pandas and None here (a NaN fill would make every result float) (0.98); so is the mean
+    of a column of unknown type (0.98).
     """
     column = call.receiver
     assert isinstance(column, Column)
@@ -268,7 +281,28 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         expr = agg_expr(code, how)
     else:
         expr = code.method(how)
+    if how in NAN_WHEN_EMPTY:
+        return scalar_of(column, expr, collected=_nan_when_empty(column, how, expr, ctx))
     return scalar_of(column, expr)
+
+
+NAN_WHEN_EMPTY = ("mean", "median", "min", "max", "std", "var", "quantile")
+
+
+def _nan_when_empty(column: Column, how: str, expr: Code, ctx: RuleContext) -> Code:
+    """pandas' mean, median, min, ... of no values is NaN; Polars gives None. Where the result
+    is a float in Polars too, the Python value is filled with NaN (only the collected value:
+    inside expressions porter keeps missing as null)."""
+    float_result = column.dtype == "float" if how in ("min", "max") \
+        else column.dtype in ("int", "float", "bool")
+    if float_result:
+        return expr.method("fill_null", emit.call("float", "nan"))
+    what = "an integer or boolean" if column.dtype in ("int", "bool") else \
+        "an unknown-type" if column.dtype is None else f"a {column.dtype}"
+    missing = "NaT" if column.dtype in ("datetime", "date") else "NaN"
+    ctx.lower(f"the {how} of no values (an empty selection or only missing values) of {what} "
+              f"column is {missing} in pandas and None here", 0.98)
+    return expr
 
 
 @rule("series.value_counts")
@@ -371,7 +405,8 @@ def series_quantile(call: PandasCall, ctx: RuleContext) -> Value:
     method = call.const("interpolation", None, "linear")
     if method not in ("linear", "lower", "higher", "nearest", "midpoint"):
         raise Unsupported(f"interpolation={method!r}")
-    return scalar_of(column, column.code.method("quantile", q, method))
+    expr = column.code.method("quantile", q, method)
+    return scalar_of(column, expr, collected=_nan_when_empty(column, "quantile", expr, ctx))
 
 
 @rule("series.any", "series.all")

@@ -173,6 +173,10 @@ def expr_in(value: Value, frame: Frame) -> Code:
             return value.agg.code
         if value.expr is not None:
             return value.expr
+        if value.pytype == "float":
+            # a reduction porter made NaN as pandas has it (the mean of no values): NaN is
+            # missing in pandas, so null inside Polars expressions
+            return emit.pl("lit", value.code).method("fill_nan", None)
         return value.code
     if isinstance(value, Opaque):
         if value.is_const and value.code.text.isidentifier() and value.code.text not in (
