@@ -329,3 +329,17 @@ def test_frames_changed_through_a_loop_variable_are_changed():
             frame.loc[frame["crates"] > 2, "kind"] = "BIG"
         both_frames = pd.concat([a, b], ignore_index=True)
         ''', "a", "b", "both_frames")
+
+
+def test_interval_bands_from_pandas_keep_the_frame_on_pandas():
+    # pd.cut without labels gives pandas' Interval values, which Polars cannot hold or write
+    # (the put-back crashed, and so did writing the frame brought back)
+    text = both('''
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        df["band"] = pd.cut(df["tons"], bins=[0, 2, 5, 10])
+        df["band3"] = pd.cut(df["crates"], bins=3)
+        df = df[df["crates"] > 1]
+        df.to_csv("bands.csv", index=False)
+        ''', "df")
+    assert "pl.from_pandas(df)" not in text

@@ -196,3 +196,24 @@ def test_astype_int_with_missing_lowers_confidence() -> None:
     result = convert(FRAME + 'df["k"] = df["kg"].astype(int)\n')
     site = next(s for s in result.sites if s.key == "series.astype")
     assert site.confidence <= 0.95 and "raises" in site.message
+
+
+@pytest.mark.parametrize("statement", [
+    pytest.param('df["d"] = [3, 1, 4, 1, 5, 9]', id="a list literal, by position"),
+    pytest.param('df["d"] = [3, None, 4, 1, 5, 9]', id="whole numbers beside a missing value are floats"),
+    pytest.param('df["d"] = ("é", "b", None, "d", "e", "f")', id="a tuple of text"),
+    pytest.param('seq = []\nfor i in range(len(df)):\n    seq.append(i * 10)\ndf["d"] = seq',
+                 id="a list built in a loop (was pl.lit: the whole list in every row)"),
+])
+def test_a_list_assigned_as_a_column_matches_pandas(statement: str) -> None:
+    differential(FRAME + statement + "\nresult = df\n")
+
+
+def test_a_list_of_another_length_fails_as_in_pandas() -> None:
+    import subprocess
+    import sys
+    source = FRAME + 'df["d"] = [1, 2]\nprint(df.collect() if hasattr(df, "collect") else df)\n'
+    converted = convert(source).converted_text
+    assert "pl.Series([1, 2]" in converted
+    done = subprocess.run([sys.executable, "-c", converted], capture_output=True, text=True)
+    assert done.returncode != 0  # pandas raises ValueError; Polars refuses the length too

@@ -303,12 +303,11 @@ def test_a_function_with_a_second_parameter_is_a_todo() -> None:
 def test_f_strings_and_str_of_datetimes_match_pandas(tmp_path, monkeypatch) -> None:
     # str(Timestamp) has no fraction when there is none, six digits when there is; NaT is "NaT"
     monkeypatch.chdir(tmp_path)
-    (tmp_path / "t.csv").write_text("d\n2024-01-05 00:00:00\n2024-12-31 23:59:59.250000\n\n"
-                                    "2024-02-29 10:00:00\n", encoding="utf-8")
+    (tmp_path / "t.csv").write_text("k,d\n1,2024-01-05 00:00:00.000000\n2,2024-12-31 23:59:59.250000\n"
+                                    "3,\n4,2024-02-29 10:00:00.000000\n", encoding="utf-8")
     differential("""
 import pandas as pd
-df = pd.read_csv("t.csv")
-df["d"] = pd.to_datetime(df["d"], format="ISO8601")
+df = pd.read_csv("t.csv", parse_dates=["d"])
 df["on"] = df["d"].map(lambda v: f"on {v}")
 df["s"] = df["d"].map(lambda v: str(v))
 result = df

@@ -46,8 +46,20 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
     if isinstance(value, Column):
         return ctx.bool_expr(value, frame), value.dtype
     if isinstance(value, Opaque) and value.is_const:
-        if isinstance(value.const, (list, tuple, dict)):
-            raise Unsupported("a list assigned as a column is positional: build it as a Series")
+        if isinstance(value.const, (list, tuple)):
+            # placed by position, as pandas places it (both raise on another length); whole
+            # numbers beside a missing value are floats in pandas
+            items = list(value.const)
+            present = [v for v in items if v is not None]
+            kwargs: dict[str, object] = {"nan_to_null": True}
+            if len(present) < len(items) and present and all(
+                    isinstance(v, int) and not isinstance(v, bool) for v in present):
+                kwargs["dtype"] = emit.atom("pl.Float64")
+            kind = {bool: "bool", int: "int", float: "float", str: "str"}.get(
+                type(present[0])) if present and len({type(v) for v in present}) == 1 else None
+            return emit.call("pl.Series", items, **kwargs), "float" if "dtype" in kwargs else kind
+        if isinstance(value.const, dict):
+            raise Unsupported("a dict assigned as a column: pandas makes its keys the values")
         kind = {bool: "bool", int: "int", float: "float", str: "str"}.get(type(value.const))
         return emit.pl("lit", value.const), kind
     if isinstance(value, Scalar):
@@ -59,10 +71,20 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
         # return a Series, which pandas aligns on the index and pl.lit cannot hold
         raise Unsupported(f"`{_short(value.code.text)}` is computed from frame data by code porter "
                           "hands to pandas, and may be a Series: the statement stays pandas")
+    if isinstance(value, Opaque) and value.pytype in ("list", "tuple"):
+        # a list is placed by position, one value per row (pandas raises on another length,
+        # and so does Polars); Polars infers the type from the Python values
+        ctx.lower(f"`{value.code.text}` is a list placed by position; Polars infers its type "
+                  "from the Python values (a whole number beside a float is a float in both)", 0.95)
+        return emit.call("pl.Series", value.code, nan_to_null=True), None
     if isinstance(value, Opaque):
         ctx.lower(f"`{value.code.text}` is taken to be a single value broadcast to every row", 0.8)
         return emit.pl("lit", value.code), None
     if isinstance(value, PandasValue):
+        if any(site.key in INTERVAL_MAKERS for site in value.sites):
+            # pandas' Interval values have no Polars type (from_pandas keeps an extension
+            # column no writer takes): the statement and the frame stay pandas
+            raise Unsupported("pandas' interval labels have no Polars type: the frame stays pandas")
         if value.rows is None or value.rows != frame.rows:
             # pandas aligns the Series on the index: by position it could land on other rows
             raise Unsupported("a Series computed by pandas whose rows porter cannot match to "
@@ -72,6 +94,10 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
                          "by position; port the computation to an expression")
         return emit.call("pl.Series", value.code, nan_to_null=True), None
     raise Unsupported("this value cannot be assigned as a column")
+
+
+# calls whose pandas result can hold Interval values (bins without labels)
+INTERVAL_MAKERS = frozenset({"pd.cut", "pd.qcut"})
 
 
 def _short(text: str, width: int = 40) -> str:

@@ -20,6 +20,7 @@ from porter.translate import handover, imports as import_edits
 from porter.translate.functions import (
     changes_in_place, discover_functions, function_definitions, learn_functions,
 )
+from porter.rules.assign import INTERVAL_MAKERS
 from porter.translate.writes import batch_writes, is_sink_text
 from porter.translate.context import PandasCall, grouping_code
 from porter.translate.evaluate import Evaluator, Services
@@ -782,7 +783,10 @@ class _Walker:
         if not isinstance(result, PandasValue):
             return self.bind(name, result, env, indent)
         statement = self.current_small
-        env[name] = PandasValue(emit.atom(name), frame=_after_change(name, frame, statement))
+        intervals = any(site.key in INTERVAL_MAKERS for site in result.sites)
+        # a frame given pandas' Interval values stays pandas (Polars has no type for them)
+        env[name] = PandasValue(emit.atom(name),
+                                frame=None if intervals else _after_change(name, frame, statement))
         if isinstance(statement, (cst.Assign, cst.AugAssign)) and statement.value is not None:
             # other frames the statement reads are handed over too (`other.pct`), never left
             # as LazyFrames or expressions inside pandas code
@@ -884,10 +888,12 @@ class _Walker:
             # porter can rewrite whole
             env[name] = PandasValue(emit.atom(name), frame=Frame(emit.atom(name)) if plain else None)
         elif isinstance(value, Opaque):
-            const = value.const
+            const, pytype = value.const, value.pytype
+            if isinstance(const, (list, tuple, dict, set)) and pytype is None:
+                pytype = type(const).__name__
             if name in self.services.mutated and isinstance(const, (list, dict, set)):
-                const = MISSING  # changed in place somewhere: not a constant
-            env[name] = Opaque(emit.atom(name), const=const, pytype=value.pytype)
+                const = MISSING  # changed in place somewhere: not a constant (still a list)
+            env[name] = Opaque(emit.atom(name), const=const, pytype=pytype)
         elif isinstance(value, Module):
             env[name] = Module(emit.atom(name), qualname=value.qualname)
         else:
