@@ -501,3 +501,24 @@ def test_read_csv_without_data_names_blank_lines_in_its_reason() -> None:
     result = convert('import pandas as pd\ndf = pd.read_csv("produce.csv")\n')
     site = next(s for s in result.sites if s.key == "pd.read_csv")
     assert "blank line" in site.message
+
+
+def test_an_integer_column_with_missing_values_is_read_as_pandas_reads_it(data: Path) -> None:
+    # pandas reads whole numbers beside a blank as floats: text made from them is "33.0", and
+    # to_csv writes 33.0. With --data porter sees the blank and reads the column as Float64.
+    (data / "fees.csv").write_text("k,fee,n\na,33,1\nb,,2\nc,-5,3\n", encoding="utf-8")
+    source = """
+        import pandas as pd
+        df = pd.read_csv("fees.csv")
+        df["label"] = "EUR " + df["fee"].astype(str)
+        df.to_csv("out.csv", index=False)
+        result = df
+        """
+    result = differential(source, data_dir=str(data))
+    assert '"fee": pl.Float64' in result.converted_text and '"n": pl.Int64' in result.converted_text
+    import textwrap
+    from support import run
+    run(textwrap.dedent(source))
+    expected = (data / "out.csv").read_bytes()
+    run(result.converted_text)
+    assert (data / "out.csv").read_bytes() == expected

@@ -98,6 +98,7 @@ class SchemaReader:
         try:
             if reader == "csv":
                 schema = pl.scan_csv(file, **scan_kwargs(options)).collect_schema()
+                schema = _missing_ints_as_floats(file, schema, options)
             elif reader == "parquet":
                 schema = pl.scan_parquet(file).collect_schema()
             else:
@@ -111,6 +112,22 @@ class SchemaReader:
                 found.polars = codes  # type: ignore[assignment]
             found.blank_lines, found.empty_rows = _blank_lines(file, scan_kwargs(options))
         return found
+
+
+def _missing_ints_as_floats(file: Path, schema: Any, options: dict[str, Any]) -> dict[str, Any]:
+    """The schema with each inferred integer column that has a missing value read as Float64,
+    as pandas reads it (pandas has no missing integer in a default read: 33 becomes 33.0)."""
+    given = options.get("dtype") if isinstance(options.get("dtype"), dict) else {}
+    ints = [name for name, dtype in schema.items() if dtype.is_integer() and name not in given]
+    found = dict(schema)
+    if not ints or file.stat().st_size > BLANK_SCAN_LIMIT:
+        return found
+    counts = pl.scan_csv(file, **scan_kwargs(options)).select(
+        pl.col(ints).null_count()).collect().row(0, named=True)
+    for name in ints:
+        if counts[name]:
+            found[name] = pl.Float64
+    return found
 
 
 BLANK_SCAN_LIMIT = 256 * 1024 * 1024  # a larger sample is not read twice to look for blank lines
