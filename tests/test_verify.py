@@ -170,3 +170,10 @@ def test_verify_help_says_it_runs_code(capsys):
     with pytest.raises(SystemExit):
         main(["verify", "--help"])
     assert "RUNS THE SCRIPTS" in capsys.readouterr().out
+
+
+def test_the_row_a_loop_over_rows_leaves_behind_is_not_a_result():
+    from porter.verify.api import _row_loop_names
+    names = _row_loop_names("for _, row in df.iterrows():\n    out.append(row['a'])\n"
+                            "for t in df.itertuples():\n    pass\nfor x in range(3):\n    pass\n")
+    assert names == {"_", "row", "t"}

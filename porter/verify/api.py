@@ -6,6 +6,8 @@ relative paths and neither side sees the other's outputs; the user's folder is n
 
 from __future__ import annotations
 
+import ast
+
 from dataclasses import dataclass, replace
 from pathlib import Path
 import shutil
@@ -57,7 +59,8 @@ def verify(original: str | Path, converted_text: str | None, data_dir: str | Pat
             (root / side).mkdir()
             sides[side] = run_side(text, script_rel, data, root / side,
                                    timeout=options.timeout, memory_mib=options.memory_mib)
-        result = _judge(sides["original"], sides["converted"], options)
+        result = _judge(sides["original"], sides["converted"], options,
+                        row_names=_row_loop_names(original_text))
         if options.timing_runs > 0 and result.verdict != "error":
             result = _timed(result, texts, script_rel, data, root, options)
         if not options.keep:  # the working copies are removed below: name none
@@ -110,7 +113,26 @@ def _script_place(original: Path, data: Path) -> str:
         return original.name
 
 
-def _judge(before: SideOutputs, after: SideOutputs, options: VerifyOptions) -> VerifyResult:
+ROW_LOOPS = {"iterrows", "itertuples"}
+
+
+def _row_loop_names(text: str) -> frozenset[str]:
+    """The names a `for` over a frame's rows binds in the script (`for _, row in
+    df.iterrows()`): the row left behind by the last turn is not a result."""
+    try:
+        tree = ast.parse(text)
+    except SyntaxError:
+        return frozenset()
+    names: set[str] = set()
+    for node in ast.walk(tree):
+        if isinstance(node, ast.For) and isinstance(node.iter, ast.Call) \
+                and isinstance(node.iter.func, ast.Attribute) and node.iter.func.attr in ROW_LOOPS:
+            names |= {n.id for n in ast.walk(node.target) if isinstance(n, ast.Name)}
+    return frozenset(names)
+
+
+def _judge(before: SideOutputs, after: SideOutputs, options: VerifyOptions,
+           row_names: frozenset[str] = frozenset()) -> VerifyResult:
     notes: list[str] = []
     outputs: list[OutputResult] = []
     if before.run.failure or after.run.failure:
@@ -130,6 +152,14 @@ def _judge(before: SideOutputs, after: SideOutputs, options: VerifyOptions) -> V
     for name in sorted(set(before.variables) | set(after.variables)):
         if name not in after.variables and name in after.expressions:
             notes.append(f"{name}: a Polars expression in the converted script (not data); "
+                         "not compared")
+            continue
+        if name not in after.variables and name in row_names:
+            notes.append(f"{name}: the last row of a loop over rows, which the converted script "
+                         "computes as columns; not compared")
+            continue
+        if name not in before.variables:
+            notes.append(f"{name}: only the converted script has it (a name porter wrote); "
                          "not compared")
             continue
         outputs.append(OutputResult(name, "variable", _compare_values(
