@@ -343,3 +343,19 @@ def test_interval_bands_from_pandas_keep_the_frame_on_pandas():
         df.to_csv("bands.csv", index=False)
         ''', "df")
     assert "pl.from_pandas(df)" not in text
+
+
+def test_a_function_that_changes_its_frame_and_is_rebound_stays_polars():
+    # `df = clean(df)`: the caller's name holds the result, so the change in place is seen
+    # through it; the function is ported (no hand-over)
+    text = both('''
+        import pandas as pd
+        def clean(frame):
+            frame["kind"] = frame["kind"].str.upper()
+            frame.dropna(subset=["tons"], inplace=True)
+            return frame
+        df = pd.read_csv("cargo.csv")
+        df = clean(df)
+        other = clean(pd.read_csv("cargo.csv"))
+        ''', "df", "other")
+    assert "to_pandas" not in text

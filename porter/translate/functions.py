@@ -30,9 +30,56 @@ def discover_functions(module: cst.Module) -> list[LocalFunction]:
             if params.star_arg not in (None, cst.MaybeSentinel.DEFAULT) or params.star_kwarg:
                 continue
             names = tuple(p.name.value for p in (*params.posonly_params, *params.params))
+            changed = changed_in_place(stmt) & set(names)
+            changed = {p for p in changed if not _rebound_at_every_call(module, stmt.name.value, names, p)}
             found.append(LocalFunction(stmt.name.value, names, frozenset(), None,
-                                       mutated_params=changed_in_place(stmt) & set(names)))
+                                       mutated_params=frozenset(changed)))
     return found
+
+
+def _rebound_at_every_call(module: cst.Module, function: str, params: tuple[str, ...],
+                           param: str) -> bool:
+    """Whether no call of `function` lets the caller see a change made in place to `param`:
+    each call passes it a value that is not a name (`f(pd.read_csv(...))`), or a name the
+    call's own result is assigned to (`df = f(df)`: the name then holds the result)."""
+    index = params.index(param)
+    calls: list[tuple[cst.Call, str | None]] = []
+
+    class Calls(cst.CSTVisitor):
+        def __init__(self) -> None:
+            super().__init__()
+            self.target: list[str | None] = [None]
+
+        def visit_Assign(self, node: cst.Assign) -> None:
+            only = node.targets[0].target if len(node.targets) == 1 else None
+            self.target.append(only.value if isinstance(only, cst.Name)
+                               and isinstance(node.value, cst.Call) else None)
+
+        def leave_Assign(self, original_node: cst.Assign) -> None:
+            self.target.pop()
+
+        def visit_Call(self, node: cst.Call) -> None:
+            if isinstance(node.func, cst.Name) and node.func.value == function:
+                calls.append((node, self.target[-1]))
+                self.target.append(None)  # calls inside its arguments are not assigned
+            else:
+                self.target.append(None)
+
+        def leave_Call(self, original_node: cst.Call) -> None:
+            self.target.pop()
+
+    module.visit(Calls())
+    for call, target in calls:
+        passed = None
+        for i, arg in enumerate(call.args):
+            if arg.star:
+                return False
+            if (arg.keyword is not None and arg.keyword.value == param) \
+                    or (arg.keyword is None and i == index):
+                passed = arg.value
+        if isinstance(passed, cst.Name) and passed.value != target:
+            return False
+    return True
 
 
 # frame methods that change the frame they are called on (besides any call with inplace=True)

@@ -21,56 +21,119 @@ DYE_COSTS = pl.LazyFrame(
 
 
 def tidy_codes(batches):
-    batches["batch_code"] = batches["batch_code"].str.strip().str.upper()
-    batches["prefix"] = batches["batch_code"].str.slice(0, 3)
-    batches["wool"] = batches["batch_code"].str.endswith("-W")
-    batches["dye"] = batches["dye"].str.strip().str.lower().str.replace(" hull", "")
+    batches = batches.with_columns(
+        batch_code=pl.col("batch_code").str.strip_chars().str.to_uppercase(),
+    )
+    batches = batches.with_columns(prefix=pl.col("batch_code").str.head(3))
+    batches = batches.with_columns(
+        wool=pl.col("batch_code").str.ends_with("-W").fill_null(False),
+    )
+    batches = batches.with_columns(
+        dye=pl.col("dye")
+        .str.strip_chars()
+        .str.to_lowercase()
+        .str.replace_all(" hull", "", literal=True),
+    )
     return batches
 
 
 def flag_status(batches):
-    status = batches["status"].str.lower()
-    batches["rejected"] = status.str.startswith("rejected")
-    batches["rush"] = status.str.contains("rush")
-    batches["note_length"] = status.str.len()
+    status = pl.col("status").str.to_lowercase()
+    batches = batches.with_columns(
+        rejected=status.str.starts_with("rejected").fill_null(False),
+    )
+    batches = batches.with_columns(rush=status.str.contains("rush").fill_null(False))
+    batches = batches.with_columns(note_length=status.str.len_chars().cast(pl.Int64))
     return batches
 
 
-# TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
-#   pandas with .collect().to_pandas(); port that code to take a Polars frame
 batches = flag_status(
     tidy_codes(
         pl.scan_csv(
             "data/batches.csv",
             null_values=PANDAS_NA_VALUES,
             infer_schema_length=None,
-        )
-        .collect()
-        .to_pandas(),
+        ),
     ),
 )
-batches["shift"] = batches["shift"].astype("category")
-batches["liters_per_kg"] = batches["liters_used"] / batches["fabric_kg"]
-batches["heat"] = batches["temp_c"].map(lambda t: "boil" if t >= 95 else "hot")
-print(batches.head())
-
-water = batches.groupby("dye")["liters_used"].agg(["sum", "mean"]).reset_index()
-# TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
-#   pandas with .collect().to_pandas(); port that code to take a Polars frame
-water = water.merge(DYE_COSTS.collect().to_pandas(), on="dye", how="left")
-water["cost"] = (water["sum"] * water["cost_per_liter"]).round(2)
-water.to_csv("water_per_dye.csv", index=False)
-
-flagged = batches[batches["rejected"] | batches["rush"]]
-flagged[["batch_code", "dye", "shift", "wool", "status", "note_length"]].to_csv("flagged_batches.csv", index=False)
-
-per_shift = batches.groupby("shift", as_index=False).agg(
-    batches=("batch_code", "count"), rejected=("rejected", "sum"), wool=("wool", "sum")
+batches = batches.with_columns(shift=pl.col("shift").cast(pl.Categorical))
+batches = batches.with_columns(
+    liters_per_kg=(pl.col("liters_used") / pl.col("fabric_kg")).fill_nan(None),
 )
-per_shift.to_csv("shift_report.csv", index=False)
-print(per_shift)
-
-intensity = batches[["batch_code", "prefix", "heat", "liters_per_kg"]].sort_values(
-    by=["liters_per_kg", "batch_code"], ascending=[False, True]
+batches = (
+    batches
+    .with_columns(
+        heat=pl.when(pl.col("temp_c") >= 95)
+        .then(pl.lit("boil"))
+        .otherwise(pl.lit("hot")),
+    )
+    .collect()
+    .lazy()
 )
-intensity.head(10).to_csv("thirstiest_batches.csv", index=False)
+print(batches.head(5).collect())
+
+water = (
+    batches
+    .drop_nulls("dye")
+    .group_by("dye")
+    .agg(
+        pl.col("liters_used").sum().alias("sum"),
+        pl.col("liters_used").mean().alias("mean"),
+    )
+    .sort("dye")
+)
+water = water.join(
+    DYE_COSTS,
+    on="dye",
+    how="left",
+    nulls_equal=True,
+    maintain_order="left_right",
+)
+water = water.with_columns(
+    cost=(pl.col("sum") * pl.col("cost_per_liter")).fill_nan(None).round(2),
+)
+(
+    water
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("water_per_dye.csv")
+)
+
+flagged = batches.filter(pl.col("rejected") | pl.col("rush"))
+(
+    flagged
+    .select("batch_code", "dye", "shift", "wool", "status", "note_length")
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("flagged_batches.csv")
+)
+
+per_shift = (
+    batches
+    .drop_nulls("shift")
+    .group_by("shift")
+    .agg(
+        pl.col("batch_code").count().cast(pl.Int64).alias("batches"),
+        pl.col("rejected").sum().alias("rejected"),
+        pl.col("wool").sum().alias("wool"),
+    )
+    .sort("shift")
+    .collect()
+    .lazy()
+)
+(
+    per_shift
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("shift_report.csv")
+)
+print(per_shift.collect())
+
+intensity = (
+    batches
+    .select("batch_code", "prefix", "heat", "liters_per_kg")
+    .sort(
+        ["liters_per_kg", "batch_code"],
+        descending=[True, False],
+        nulls_last=True,
+        maintain_order=True,
+    )
+)
+intensity.head(10).sink_csv("thirstiest_batches.csv")

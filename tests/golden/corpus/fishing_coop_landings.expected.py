@@ -16,26 +16,45 @@ SPELLINGS = {"anchovie": "anchovy", "sardines": "sardine"}
 
 
 def clean_landings(landings):
-    landings["species"] = landings["species"].str.strip().str.lower()
-    landings["species"] = landings["species"].replace(SPELLINGS)
-    landings["ice_boxes"] = landings["ice_boxes"].replace(-1, 0)
-    landings["value_eur"] = (landings["catch_kg"] * landings["price_per_kg"]).round(2)
+    landings = landings.with_columns(
+        species=pl.col("species").str.strip_chars().str.to_lowercase(),
+    )
+    landings = landings.with_columns(
+        species=pl.col("species").replace({"anchovie": "anchovy", "sardines": "sardine"}),
+    )
+    landings = landings.with_columns(ice_boxes=pl.col("ice_boxes").replace(-1, 0))
+    landings = landings.with_columns(
+        value_eur=(pl.col("catch_kg") * pl.col("price_per_kg")).fill_nan(None).round(2),
+    )
     return landings
 
 
 def quota_status(landings, quota):
-    landed = landings.groupby(["boat", "species"], as_index=False).agg(
-        landed_kg=("catch_kg", "sum"), port=("port", "last")
+    landed = (
+        landings
+        .drop_nulls(["boat", "species"])
+        .group_by(["boat", "species"])
+        .agg(
+            pl.col("catch_kg").sum().alias("landed_kg"),
+            pl.col("port").last(ignore_nulls=True).alias("port"),
+        )
+        .sort(["boat", "species"])
     )
-    # TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
-    #   pandas with .collect().to_pandas(); port that code to take a Polars frame
-    status = landed.merge(
-        quota.collect().to_pandas(),
-        on=["boat", "species"],
-        how="outer",
-        suffixes=("_landed", "_home"),
+    status = (
+        landed
+        .rename(
+            lambda c, other=quota.collect_schema().names(): c + "_landed" if c in other and c not in ("boat", "species") else c,
+        )
+        .join(
+            quota.rename(lambda c: c + "_home" if c in ("landed_kg", "port") else c),
+            on=["boat", "species"],
+            how="full",
+            coalesce=True,
+            nulls_equal=True,
+            maintain_order="left_right",
+        )
+        .sort(["boat", "species"], nulls_last=True, maintain_order=True)
     )
-    status = pl.from_pandas(status).lazy()
     status = status.with_columns(
         landed_kg=pl.col("landed_kg").fill_null(0),
         quota_kg=pl.col("quota_kg").fill_null(0),
@@ -53,26 +72,32 @@ def quota_status(landings, quota):
 
 
 def boat_totals(landings):
-    totals = landings.groupby("boat").agg(
-        trips=("landing_id", "nunique"),
-        catch_kg=("catch_kg", "sum"),
-        value_eur=("value_eur", "sum"),
-        ice_boxes=("ice_boxes", "sum"),
-        best_price=("price_per_kg", "max"),
+    totals = (
+        landings
+        .drop_nulls("boat")
+        .group_by("boat")
+        .agg(
+            pl.col("landing_id").drop_nulls().n_unique().cast(pl.Int64).alias("trips"),
+            pl.col("catch_kg").sum().alias("catch_kg"),
+            pl.col("value_eur").sum().alias("value_eur"),
+            pl.col("ice_boxes").sum().alias("ice_boxes"),
+            pl.col("price_per_kg").max().alias("best_price"),
+        )
+        .sort("boat")
     )
-    return totals.reset_index().round(2)
+    return totals.with_columns(pl.selectors.float().round(2))
 
 
-# TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
-#   pandas with .collect().to_pandas(); port that code to take a Polars frame
-landings = clean_landings(
-    pl.scan_csv(
-        "data/landings.csv",
-        null_values=PANDAS_NA_VALUES,
-        infer_schema_length=None,
+landings = (
+    clean_landings(
+        pl.scan_csv(
+            "data/landings.csv",
+            null_values=PANDAS_NA_VALUES,
+            infer_schema_length=None,
+        ),
     )
     .collect()
-    .to_pandas(),
+    .lazy()
 )
 quota = (
     pl.scan_csv(
@@ -83,7 +108,11 @@ quota = (
     .collect()
     .lazy()
 )
-print(landings["species"].unique())
+print(
+    landings.select(pl.col("species").unique(maintain_order=True))
+    .collect()
+    .to_series(),
+)
 
 status = quota_status(landings, quota).collect().lazy()
 (
@@ -93,6 +122,10 @@ status = quota_status(landings, quota).collect().lazy()
 )
 print(status.filter(pl.col("over_quota")).collect())
 
-totals = boat_totals(landings)
-totals.to_csv("boat_totals.csv", index=False)
-print(totals["catch_kg"].sum())
+totals = boat_totals(landings).collect().lazy()
+(
+    totals
+    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .sink_csv("boat_totals.csv")
+)
+print(totals.select(pl.col("catch_kg").sum()).collect().item())

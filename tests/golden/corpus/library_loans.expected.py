@@ -35,18 +35,18 @@ def load_loans(path):
 
 
 def flag_loans(loans):
-    loans["still_out"] = loans["returned_on"].isna()
-    loans["late"] = loans["returned_on"] > loans["due_on"]
-    loans["year"] = loans["borrowed_on"].dt.year
-    loans["month"] = loans["borrowed_on"].dt.month
-    loans["branch"] = loans["branch"].str.lower()
+    loans = loans.with_columns(still_out=pl.col("returned_on").is_null())
+    loans = loans.with_columns(
+        late=(pl.col("returned_on") > pl.col("due_on")).fill_null(False),
+    )
+    loans = loans.with_columns(year=pl.col("borrowed_on").dt.year())
+    loans = loans.with_columns(month=pl.col("borrowed_on").dt.month())
+    loans = loans.with_columns(branch=pl.col("branch").str.to_lowercase())
     return loans
 
 
 def main():
-    # TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
-    #   pandas with .collect().to_pandas(); port that code to take a Polars frame
-    loans = flag_loans(load_loans("data/loans.csv").collect().to_pandas())
+    loans = flag_loans(load_loans("data/loans.csv")).collect().lazy()
     members = (
         pl.scan_csv(
             "data/members.csv",
@@ -58,16 +58,29 @@ def main():
         .lazy()
     )
 
-    # TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
-    #   pandas with .collect().to_pandas(); port that code to take a Polars frame
-    joined = loans.merge(
-        members.collect().to_pandas(),
-        left_on="member_id",
-        right_on="member_no",
-        how="inner",
+    joined = (
+        loans
+        .rename(
+            lambda c, other=members.collect_schema().names(): c + "_x" if c in other and c not in ("member_id",) else c,
+        )
+        .join(
+            members.rename(
+                lambda c, other=loans.collect_schema().names(): c + "_y" if c in other and c not in ("member_no",) else c,
+            ),
+            left_on="member_id",
+            right_on="member_no",
+            how="inner",
+            coalesce=False,
+            nulls_equal=True,
+            maintain_order="left_right",
+        )
+        .collect()
+        .lazy()
     )
-    joined = pl.from_pandas(joined).lazy()
-    print(len(loans), joined.select(pl.len()).collect().item())
+    print(
+        loans.select(pl.len()).collect().item(),
+        joined.select(pl.len()).collect().item(),
+    )
 
     by_member = (
         joined
@@ -102,14 +115,40 @@ def main():
     )
     print(by_member.head(8).collect())
 
-    per_branch = loans.groupby(["branch", "year", "month"], as_index=False).size()
-    per_branch.to_csv("branch_month_loans.csv", index=False)
+    per_branch = (
+        loans
+        .drop_nulls(["branch", "year", "month"])
+        .group_by(["branch", "year", "month"])
+        .agg(pl.len().cast(pl.Int64).alias("size"))
+        .sort(["branch", "year", "month"])
+    )
+    (
+        per_branch
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+        )
+        .sink_csv("branch_month_loans.csv")
+    )
 
-    # TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
-    #   pandas with .collect().to_pandas(); port that code to take a Polars frame
-    unknown_members = loans[~loans["member_id"].isin(members.select(pl.col("member_no")).collect().to_series().to_pandas())]
-    unknown_members[["loan_id", "member_id", "borrowed_on"]].to_csv("unknown_members.csv", index=False)
-    print(len(unknown_members))
+    unknown_members = (
+        loans
+        .filter(
+            ~pl.col("member_id").is_in(members.select(pl.col("member_no")).collect().to_series(), nulls_equal=True),
+        )
+        .collect()
+        .lazy()
+    )
+    (
+        unknown_members
+        .select("loan_id", "member_id", "borrowed_on")
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+        )
+        .sink_csv("unknown_members.csv")
+    )
+    print(unknown_members.select(pl.len()).collect().item())
 
 
 if __name__ == "__main__":

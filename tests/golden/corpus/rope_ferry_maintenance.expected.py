@@ -27,11 +27,13 @@ HOURLY_RATE = 38   # per hour, agreed with the ferry board in 2023
 
 
 def clean_jobs(jobs):
-    jobs["ferry"] = jobs["ferry"].str.strip().str.title()
-    jobs["status"] = jobs['status'].str.strip().str.lower()
-    jobs["mechanic"] = jobs["mechanic"].str.title()
-    jobs["labour"] = jobs["hours"] * HOURLY_RATE
-    return jobs.drop_duplicates("job_id")
+    jobs = jobs.with_columns(ferry=pl.col("ferry").str.strip_chars().str.to_titlecase())
+    jobs = jobs.with_columns(
+        status=pl.col('status').str.strip_chars().str.to_lowercase(),
+    )
+    jobs = jobs.with_columns(mechanic=pl.col("mechanic").str.to_titlecase())
+    jobs = jobs.with_columns(labour=pl.col("hours") * HOURLY_RATE)
+    return jobs.unique("job_id", keep="first", maintain_order=True)
 
 
 def price_parts(lines, prices):
@@ -56,6 +58,8 @@ jobs = (
         infer_schema_length=None,
     )
     .with_columns(pl.col("done_on").str.to_datetime(time_unit="us"))
+    .collect()
+    .lazy()
 )
 prices = (
     pl.scan_csv(
@@ -66,12 +70,16 @@ prices = (
     .collect()
     .lazy()
 )
-jobs = jobs.collect().to_pandas()
-# TODO(porter): frame.clean_jobs(): `clean_jobs()` changes the frame in place, which porter does not
-#   rewrite: `jobs` is handed to pandas first
 jobs = clean_jobs(jobs)
 
 # one row per part fitted
+jobs = jobs.collect().to_pandas()
+# TODO(porter): frame.getitem.column: kept on pandas with the statement it is in
+# TODO(porter): series.str.split: a list column is pl.col(c).str.split(pat) (literal; pandas reads a
+#   pattern longer than one character as a regex); expand=True needs the number of parts:
+#   str.split_exact(pat, n).struct.unnest() and rename field_i to i
+# TODO(porter): frame.setitem: a Series computed by pandas whose rows porter cannot match to the
+#   frame's (pandas aligns it on the index): the statement stays pandas
 jobs["part"] = jobs["parts_used"].str.split(";")
 lines = jobs.explode("part")
 lines["part"] = lines["part"].str.strip().str.lower()
@@ -92,10 +100,20 @@ parts_per_job = (
     .sort("job_id")
     .rename({"unit_cost": "parts_cost"})
 )
-# TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
-#   pandas with .collect().to_pandas(); port that code to take a Polars frame
-job_costs = jobs.merge(parts_per_job.collect().to_pandas(), on="job_id", how="left")
-job_costs = pl.from_pandas(job_costs).lazy()
+jobs = pl.from_pandas(jobs).lazy()
+job_costs = (
+    jobs
+    .rename(lambda c: c + "_x" if c in ("parts_cost",) else c)
+    .join(
+        parts_per_job.rename(
+            lambda c, other=jobs.collect_schema().names(): c + "_y" if c in other and c not in ("job_id",) else c,
+        ),
+        on="job_id",
+        how="left",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+)
 job_costs = job_costs.with_columns(
     parts_per_hour=(pl.col("parts_cost") / pl.col("hours")).fill_nan(None),
 )   # hours 0: inspection only
