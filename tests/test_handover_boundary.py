@@ -359,3 +359,14 @@ def test_a_function_that_changes_its_frame_and_is_rebound_stays_polars():
         other = clean(pd.read_csv("cargo.csv"))
         ''', "df", "other")
     assert "to_pandas" not in text
+
+
+def test_two_names_for_one_frame_changed_by_a_function_stay_one_frame():
+    both('''
+        import pandas as pd
+        def add_flags(frame):
+            frame["heavy"] = frame["tons"] > 4
+        df = pd.read_csv("cargo.csv")
+        view = df
+        add_flags(view)
+        ''', "df", "view")

@@ -120,7 +120,7 @@ def _missing_ints_as_floats(file: Path, schema: Any, options: dict[str, Any]) ->
     given = options.get("dtype") if isinstance(options.get("dtype"), dict) else {}
     ints = [name for name, dtype in schema.items() if dtype.is_integer() and name not in given]
     found = dict(schema)
-    if not ints or file.stat().st_size > BLANK_SCAN_LIMIT:
+    if not ints or file.stat().st_size > SAMPLE_SCAN_LIMIT:
         return found
     counts = pl.scan_csv(file, **scan_kwargs(options)).select(
         pl.col(ints).null_count()).collect().row(0, named=True)
@@ -130,14 +130,14 @@ def _missing_ints_as_floats(file: Path, schema: Any, options: dict[str, Any]) ->
     return found
 
 
-BLANK_SCAN_LIMIT = 256 * 1024 * 1024  # a larger sample is not read twice to look for blank lines
+SAMPLE_SCAN_LIMIT = 256 * 1024 * 1024  # a larger sample is not read again for its blank lines or blanks
 
 
 def _blank_lines(file: Path, kwargs: dict[str, Any]) -> tuple[bool | None, bool]:
     """(whether the file has blank lines after its header, whether it has lines a scan cannot
     tell from a skipped blank line once read: every field empty or a missing-value token, or
     only spaces); (None, False) when the file is not looked at."""
-    if file.stat().st_size > BLANK_SCAN_LIMIT:
+    if file.stat().st_size > SAMPLE_SCAN_LIMIT:
         return None, False
     separator = kwargs.get("separator", ",")
     tokens = set(kwargs.get("null_values") or ()) | {""}

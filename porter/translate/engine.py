@@ -12,14 +12,12 @@ import libcst as cst
 from libcst.metadata import MetadataWrapper, ParentNodeProvider, PositionProvider
 
 from porter.analysis.imports import ImportFacts, collect_imports
-from porter.analysis.mutations import mutated_names
+from porter.analysis.mutations import IN_PLACE_METHODS, changes_in_place, mutated_names
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.model import SiteDraft
 from porter.translate import handover, imports as import_edits
-from porter.translate.functions import (
-    changes_in_place, discover_functions, function_definitions, learn_functions,
-)
+from porter.translate.functions import discover_functions, function_definitions, learn_functions
 from porter.rules.assign import INTERVAL_MAKERS
 from porter.translate.writes import batch_writes, is_sink_text
 from porter.translate.context import PandasCall, grouping_code
@@ -80,7 +78,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
         return before.isalnum() or before == "_"
 
     services.code_for = module.code_for_node
-    services.name_uses = _name_uses(module)
+    services.name_uses = _name_counts(module)
     services.changed_in_place = {name: [position(n)[0] for n in nodes]
                                  for name, nodes in changes_in_place(module).items()}
     services.position = position
@@ -91,6 +89,9 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     functions = discover_functions(module)
     services.functions = {f.name: f for f in functions}
     services.function_defs = function_definitions(module)
+    # a call of the script's own function that changes its argument in place changes it too
+    for name, _, call in _changed_by_functions(module, services.functions):
+        services.changed_in_place.setdefault(name, []).append(position(call)[0])
 
     # Which parameters of the script's own functions take frames is learnt from the calls:
     # run the pass until that stops changing (each round can learn one more link of a chain
@@ -561,26 +562,6 @@ class _Walker:
         return any(line > here or self.loop_depth or self.function is not None
                    for name in names for line in self.services.changed_in_place.get(name, ()))
 
-    def changed_by_functions(self, stmt: cst.CSTNode) -> list[tuple[str, str]]:
-        """(name, "f()") for each `f(name, ...)` in the statement where the script's own
-        function f changes that parameter in place."""
-        found: list[tuple[str, str]] = []
-        functions = self.services.functions
-
-        class Calls(cst.CSTVisitor):
-            def visit_Call(self, node: cst.Call) -> None:
-                if not isinstance(node.func, cst.Name) or node.func.value not in functions:
-                    return
-                function = functions[node.func.value]
-                for i, arg in enumerate(node.args):
-                    param = arg.keyword.value if arg.keyword is not None else (
-                        function.params[i] if i < len(function.params) and not arg.star else None)
-                    if param in function.mutated_params and isinstance(arg.value, cst.Name):
-                        found.append((arg.value.value, f"{function.name}()"))
-
-        stmt.visit(Calls())
-        return found
-
     def hand_over_changed(self, stmt: cst.BaseSmallStatement, env: dict[str, Value]) -> tuple[list[str], list[SiteDraft]]:
         """Frames and Series the statement changes in place in a way no rule rewrites
         (`df.insert(...)`, `df.at[i, "c"] = v`, `s.name = "x"`): each is handed to pandas in
@@ -591,7 +572,7 @@ class _Walker:
             value = env.get(name) if name is not None else None
             if isinstance(value, (Frame, Column)) and not _rewritten_change(target, value, stmt):
                 changed.setdefault(name, what)  # type: ignore[arg-type]
-        for name, what in [*_mutating_calls(stmt), *self.changed_by_functions(stmt)]:
+        for name, what in [*_mutating_calls(stmt), *((n, w) for n, w, _ in _changed_by_functions(stmt, self.services.functions))]:
             if isinstance(env.get(name), (Frame, Column)):
                 changed.setdefault(name, what)
         lines: list[str] = []
@@ -904,9 +885,6 @@ class _Walker:
 
 # pandas methods that change their frame or Series in place (and have no rule that rewrites the
 # change); list methods of the same names are not affected: only tracked frames are handed over
-IN_PLACE_METHODS = frozenset({"insert", "pop", "update", "isetitem", "popitem"})
-
-
 def _changed_targets(stmt: cst.BaseSmallStatement) -> list[cst.BaseExpression]:
     """Subscripts and attributes the statement assigns to or deletes."""
     if isinstance(stmt, cst.Assign):
@@ -980,6 +958,26 @@ def _mutating_calls(stmt: cst.CSTNode) -> list[tuple[str, str]]:
     return found
 
 
+def _changed_by_functions(node: cst.CSTNode, functions: dict[str, Any]) -> list[tuple[str, str, cst.Call]]:
+    """(name, "f()", call) for each `f(name, ...)` in `node` where the script's own function f
+    changes that parameter in place."""
+    found: list[tuple[str, str, cst.Call]] = []
+
+    class Calls(cst.CSTVisitor):
+        def visit_Call(self, call: cst.Call) -> None:
+            if not isinstance(call.func, cst.Name) or call.func.value not in functions:
+                return
+            function = functions[call.func.value]
+            for i, arg in enumerate(call.args):
+                param = arg.keyword.value if arg.keyword is not None else (
+                    function.params[i] if i < len(function.params) and not arg.star else None)
+                if param in function.mutated_params and isinstance(arg.value, cst.Name):
+                    found.append((arg.value.value, f"{function.name}()", call))
+
+    node.visit(Calls())
+    return found
+
+
 def _row_appends(stmt: cst.For) -> tuple[str, str, list[tuple[str, cst.BaseExpression]]] | None:
     """(label name, row name, [(list name, appended value)]) of `for label, row in
     x.iterrows():` whose body only appends one value to a list per line; None otherwise."""
@@ -1023,9 +1021,6 @@ def _name_counts(node: cst.CSTNode) -> dict[str, int]:
 
     node.visit(Count())
     return counts
-
-
-_name_uses = _name_counts
 
 
 _PLAIN_FRAME_METHODS = {"reset_index", "merge", "merge_asof", "merge_ordered"}

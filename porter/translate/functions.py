@@ -9,6 +9,7 @@ from typing import Any
 
 import libcst as cst
 
+from porter.analysis.mutations import changed_in_place
 from porter.emit.code import Code
 from porter.translate.evaluate import LocalFunction, Services
 from porter.translate.values import Column, Frame, Opaque, Scalar, Value, fresh_token
@@ -80,55 +81,6 @@ def _rebound_at_every_call(module: cst.Module, function: str, params: tuple[str,
         if isinstance(passed, cst.Name) and passed.value != target:
             return False
     return True
-
-
-# frame methods that change the frame they are called on (besides any call with inplace=True)
-CHANGING_METHODS = frozenset({"insert", "pop", "update", "isetitem", "popitem", "drop_duplicates",
-                              "__setitem__", "__delitem__"})
-
-
-def changed_in_place(node: cst.CSTNode) -> frozenset[str]:
-    """Names whose object the code changes in place: assigned or deleted through a subscript or
-    an attribute (`df["c"] = …`, `df.loc[m, "c"] = …`, `df.columns = …`), or given to a method
-    that changes it (`df.insert(…)`, anything with `inplace=True`)."""
-    return frozenset(changes_in_place(node))
-
-
-def changes_in_place(node: cst.CSTNode) -> dict[str, list[cst.CSTNode]]:
-    """Each name changed in place (see changed_in_place), with the nodes that change it."""
-    found: dict[str, list[cst.CSTNode]] = {}
-
-    def root(expr: cst.BaseExpression) -> None:
-        at = expr
-        while isinstance(expr, (cst.Subscript, cst.Attribute)):
-            expr = expr.value
-        if isinstance(expr, cst.Name):
-            found.setdefault(expr.value, []).append(at)
-
-    class Finder(cst.CSTVisitor):
-        def visit_AssignTarget(self, n: cst.AssignTarget) -> None:
-            if isinstance(n.target, (cst.Subscript, cst.Attribute)):
-                root(n.target)
-
-        def visit_AugAssign(self, n: cst.AugAssign) -> None:
-            if isinstance(n.target, (cst.Subscript, cst.Attribute)):
-                root(n.target)
-
-        def visit_Del(self, n: cst.Del) -> None:
-            root(n.target)
-
-        def visit_Call(self, n: cst.Call) -> None:
-            func = n.func
-            if not isinstance(func, cst.Attribute):
-                return
-            inplace = any(a.keyword is not None and a.keyword.value == "inplace"
-                          and not (isinstance(a.value, cst.Name) and a.value.value == "False")
-                          for a in n.args)
-            if inplace or func.attr.value in CHANGING_METHODS:
-                root(func.value)
-
-    node.visit(Finder())
-    return found
 
 
 def function_definitions(module: cst.Module) -> dict[str, cst.FunctionDef]:
