@@ -522,3 +522,35 @@ def test_an_integer_column_with_missing_values_is_read_as_pandas_reads_it(data: 
     expected = (data / "out.csv").read_bytes()
     run(result.converted_text)
     assert (data / "out.csv").read_bytes() == expected
+
+
+FLAGS_CSV = "shop,ok,kg,day\nÉclair,True,1.5,2024-01-05\nünï,False,,2024-01-06\nÉclair,False,2.0,2024-01-07\n"
+
+AGGREGATE_WRITES = [
+    pytest.param('df.groupby("shop", as_index=False).agg(n=("ok", "sum"), kg=("kg", "mean"))',
+                 False, id="sums and means of known columns: no text conversion"),
+    pytest.param('df.groupby("shop")["ok"].first().reset_index()', True,
+                 id="the first of a boolean column is still boolean"),
+    pytest.param('df.groupby("shop").size().reset_index(name="lines")', False, id="sizes"),
+    pytest.param('df.groupby("shop", as_index=False)["day"].max()', False,
+                 id="the latest text date"),
+]
+
+
+@pytest.mark.parametrize("aggregate, booleans", AGGREGATE_WRITES)
+def test_to_csv_of_aggregates_with_known_types(aggregate: str, booleans: bool, data: Path,
+                                               monkeypatch: pytest.MonkeyPatch) -> None:
+    """With --data the types of aggregates are known: booleans are converted to pandas' text
+    only where an aggregate is still boolean, and the bytes match pandas'."""
+    (data / "flags.csv").write_text(FLAGS_CSV, encoding="utf-8")
+    source = ('import pandas as pd\ndf = pd.read_csv("flags.csv")\n'
+              f'out = {aggregate}\nout.to_csv("out.csv", index=False)\n')
+    converted = convert(source, data_dir=str(data)).converted_text
+    assert ("pl.selectors.boolean()" in converted) is booleans, converted
+    for side, text in (("pandas", source), ("polars", converted)):
+        (data / side).mkdir()
+        (data / side / "flags.csv").write_text(FLAGS_CSV, encoding="utf-8")
+        monkeypatch.chdir(data / side)
+        run(text)
+    assert (data / "polars" / "out.csv").read_text(encoding="utf-8") == \
+        (data / "pandas" / "out.csv").read_text(encoding="utf-8"), converted

@@ -100,9 +100,25 @@ def groupby_getitem(call: PandasCall, ctx: RuleContext) -> Value:
     raise Unsupported("selecting group columns by a computed key")
 
 
+def agg_dtype(how: str, dtype: str | None) -> str | None:
+    """porter's dtype name of an aggregate of a column of `dtype` (None: not known)."""
+    if how in COUNTS:
+        return "int"
+    if how in ("mean", "median", "std", "var"):
+        return "float" if dtype in ("int", "float", "bool") else None
+    if how in ("sum", "builtin_sum"):
+        return {"bool": "int", "int": "int", "float": "float", "str": "str"}.get(dtype or "")
+    if how in ("min", "max", "first", "last", "builtin_min", "builtin_max"):
+        return dtype if dtype in ("int", "float", "str", "bool", "datetime", "date") else None
+    return None
+
+
 def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleContext,
-              *, series_name: str | None = None, is_series: bool = False) -> Value:
-    """The frame of aggregates, sorted like pandas, as a frame or (for one column) a Series."""
+              *, series_name: str | None = None, is_series: bool = False,
+              dtypes: list[str | None] | None = None) -> Value:
+    """The frame of aggregates, sorted like pandas, as a frame or (for one column) a Series.
+
+    `dtypes` are the aggregates' types where known (agg_dtype); the keys keep theirs."""
     code = grouping_code(grouped).method("agg", *exprs)
     keys = list(grouped.keys)
     if grouped.sort:
@@ -111,11 +127,14 @@ def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleCo
         code = code.method("sort", emit.names_arg(keys), **kwargs)
     columns = (*keys, *names)
     index = tuple(keys) if grouped.as_index else ()
-    frame = Frame(code, columns=columns, index=index, labels_intact=not grouped.as_index)
+    known = [(k, grouped.frame.dtype(k)) for k in keys]
+    known += list(zip(names, dtypes or [None] * len(names)))
+    frame = Frame(code, columns=columns, index=index, labels_intact=not grouped.as_index,
+                  dtypes=tuple((c, t) for c, t in known if t is not None))
     if is_series and grouped.as_index:
         name = series_name
         return Column(emit.col(name if name is not None else names[0]), frame=frame,
-                      name=name, refs=frozenset(names))
+                      name=name, refs=frozenset(names), dtype=frame.dtype(names[0]))
     return frame
 
 
@@ -147,8 +166,8 @@ def reduce(call: PandasCall, ctx: RuleContext) -> Value:
             # g.size() is an unnamed Series; g["qty"].size() is named after the column
             name = grouped.selection[0] if grouped.single and grouped.selection else None
             return aggregate(grouped, [expr.method("alias", name or "size")], [name or "size"], ctx,
-                             series_name=name, is_series=True)
-        return aggregate(grouped, [expr.method("alias", "size")], ["size"], ctx)
+                             series_name=name, is_series=True, dtypes=["int"])
+        return aggregate(grouped, [expr.method("alias", "size")], ["size"], ctx, dtypes=["int"])
     ddof = call.const("ddof", None, 1)
     columns = target_columns(grouped, ctx)
     if columns is None:
@@ -165,8 +184,10 @@ def reduce(call: PandasCall, ctx: RuleContext) -> Value:
             expr = emit.col(name).method(how, ddof=ddof)
         exprs.append(expr)
     single = grouped.single and len(columns) == 1
+    dtypes = [agg_dtype(how, grouped.frame.dtype(name)) if ddof == 1 or how not in ("std", "var")
+              else "float" for name in columns]
     return aggregate(grouped, exprs, columns, ctx, series_name=columns[0] if single else None,
-                     is_series=single)
+                     is_series=single, dtypes=dtypes)
 
 
 @rule("groupby.agg", "groupby.aggregate")
@@ -182,6 +203,7 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
     grouped = grouped_of(call)
     exprs: list[Code] = []
     names: list[str] = []
+    dtypes: list[str | None] = []
 
     def add(column: str, how: str, name: str) -> None:
         if how == "size":
@@ -190,6 +212,7 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
             expr = agg_expr(emit.col(column), how, grouped.frame.dtype(column))
         exprs.append(expr.method("alias", name))
         names.append(name)
+        dtypes.append(agg_dtype(how, grouped.frame.dtype(column)))
 
     if call.kwargs and not call.args:
         selected = grouped.selection[0] if grouped.single and grouped.selection else None
@@ -201,7 +224,7 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
                 raise Unsupported("named aggregation needs (column, function) pairs")
             column, how = spec.const
             add(column, how_name(Opaque(emit.lit(how), const=how)), name)
-        return aggregate(grouped, exprs, names, ctx)
+        return aggregate(grouped, exprs, names, ctx, dtypes=dtypes)
     if len(call.args) != 1 or call.kwargs:
         raise Unsupported("agg with extra arguments")
     spec_value = call.args[0]
@@ -214,14 +237,14 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
                 add(column, how, f"{column}_{how}" if flattened else column)
         if flattened:
             ctx.lower("pandas makes MultiIndex columns here; porter names them column_function", 0.9)
-        return aggregate(grouped, exprs, names, ctx)
+        return aggregate(grouped, exprs, names, ctx, dtypes=dtypes)
     if isinstance(spec, list):
         columns = target_columns(grouped, ctx)
         if columns is None or len(columns) != 1:
             raise Unsupported("a list of functions over several columns makes MultiIndex columns")
         for how in spec:
             add(columns[0], str(how), str(how))
-        return aggregate(grouped, exprs, names, ctx)
+        return aggregate(grouped, exprs, names, ctx, dtypes=dtypes)
     how = how_name(spec_value)
     if how.startswith("builtin_"):
         columns = target_columns(grouped, ctx)
@@ -231,7 +254,7 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
             add(column, how, column)
         single = grouped.single and len(columns) == 1
         return aggregate(grouped, exprs, names, ctx, series_name=columns[0] if single else None,
-                         is_series=single)
+                         is_series=single, dtypes=dtypes)
     forward = PandasCall(grouped, how, (), {}, call.node)
     if how not in AGGREGATIONS:
         raise Unsupported(f"aggregation {how!r}")

@@ -180,7 +180,9 @@ def series_reset_index(call: PandasCall, ctx: RuleContext) -> Value:
     if column.name is None and name is None:
         ctx.lower("the values column is named \"0\" (the integer 0 in pandas)", 0.95)
     code = series_frame(renamed)
-    return Frame(code, columns=(*column.frame.index, value_name), labels_intact=True)
+    dtypes = [(k, column.frame.dtype(k)) for k in column.frame.index] + [(value_name, column.dtype)]
+    return Frame(code, columns=(*column.frame.index, value_name), labels_intact=True,
+                 dtypes=tuple((c, t) for c, t in dtypes if t is not None))
 
 
 @rule("series.isin")

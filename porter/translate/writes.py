@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import textwrap
 from typing import Any
 
 import libcst as cst
@@ -76,7 +77,8 @@ def _collect_all(run: list[tuple[Any, cst.Call]]) -> cst.SimpleStatementLine:
                        equal=cst.AssignEqual(cst.SimpleWhitespace(""), cst.SimpleWhitespace("")))
         with_lazy = call.with_changes(args=[*(a.with_changes(comma=cst.Comma(
             whitespace_after=cst.SimpleWhitespace(" "))) for a in args), lazy])
-        lines.append(f"    {module.code_for_node(with_lazy)},")
+        # a write laid out over several lines keeps its layout, one level in
+        lines.append(textwrap.indent(module.code_for_node(with_lazy), "    ") + ",")
     text = "pl.collect_all([\n" + "\n".join(lines) + "\n])\n"
     stmt = cst.parse_statement(text)
     first = run[0][0]

@@ -140,21 +140,21 @@ first_last = (
 )
 pl.collect_all([
     (
-    typical
-    .with_columns(
-        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
-        PANDAS_CSV_DATETIMES,
-    )
-    .sink_csv("typical_units.csv", lazy=True)
-),
+        typical
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+        )
+        .sink_csv("typical_units.csv", lazy=True)
+    ),
     (
-    first_last
-    .with_columns(
-        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
-        PANDAS_CSV_DATETIMES,
-    )
-    .sink_csv("first_and_last.csv", lazy=True)
-),
+        first_last
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+        )
+        .sink_csv("first_and_last.csv", lazy=True)
+    ),
 ])
 
 least_waste = (

@@ -139,14 +139,7 @@ by_recipe = (
     .sort("recipe")
 )
 by_recipe = by_recipe.with_columns(mean_loss=pl.col("mean_loss").round(2))
-(
-    by_recipe
-    .with_columns(
-        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
-        PANDAS_CSV_DATETIMES,
-    )
-    .sink_csv("recipe_loss.csv")
-)
+by_recipe.sink_csv("recipe_loss.csv")
 print(
     wheels.select(pl.col("status"))
     .drop_nulls()

@@ -119,11 +119,7 @@ per_shift = (
     .collect()
     .lazy()
 )
-(
-    per_shift
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
-    .sink_csv("shift_report.csv")
-)
+per_shift.sink_csv("shift_report.csv")
 print(per_shift.collect())
 
 intensity = (

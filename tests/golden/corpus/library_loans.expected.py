@@ -122,14 +122,7 @@ def main():
         .agg(pl.len().cast(pl.Int64).alias("size"))
         .sort(["branch", "year", "month"])
     )
-    (
-        per_branch
-        .with_columns(
-            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
-            PANDAS_CSV_DATETIMES,
-        )
-        .sink_csv("branch_month_loans.csv")
-    )
+    per_branch.sink_csv("branch_month_loans.csv")
 
     unknown_members = (
         loans

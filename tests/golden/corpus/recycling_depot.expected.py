@@ -88,11 +88,7 @@ per_material = (
         maintain_order=True,
     )
 )
-(
-    per_material
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
-    .sink_csv("material_totals.csv")
-)
+per_material.sink_csv("material_totals.csv")
 
 heavy = drops.filter(
     pl.col("weight_kg").is_between(20, 60) & pl.col("material").is_in(["glass", "metal"]),
