@@ -527,3 +527,121 @@ def test_repeated_labels_are_not_read_as_fresh_ones() -> None:
     "0..n-1, so the pandas fallback of reset_index() reads other labels than pandas did"))
 def test_repeated_labels_after_concat_match_pandas() -> None:
     differential(FRAMES + "result = pd.concat([left, right]).reset_index()\n")
+
+
+# -- merge_asof -------------------------------------------------------------------------------
+
+# Sorted keys (pandas raises otherwise) with ties on both sides (t=3 twice in each), a left row
+# before any right row (unmatched), a missing `by` value on the left, unicode groups, a NaN in
+# a right float column and an int column that unmatched rows leave missing.
+ASOF = '''
+import numpy as np
+import pandas as pd
+trips = pd.DataFrame({
+    "t": [1, 3, 3, 5, 8, 12],
+    "line": ["north", "south", "north", None, "é-ligne", "north"],
+    "pax": [10, 20, 30, 40, 50, 60],
+})
+fares = pd.DataFrame({
+    "t": [0, 3, 3, 6, 12],
+    "line": ["north", "north", "south", "é-ligne", "north"],
+    "fare": [1.5, 2.0, np.nan, 3.5, 4.0],
+    "zone": [1, 2, 2, 3, 4],
+})
+tariffs = pd.DataFrame({
+    "since": [0, 3, 3, 6, 12],
+    "route": ["north", "north", "south", "é-ligne", "north"],
+    "pax": [7, 8, 9, 10, 11],
+    "t": [100, 200, 300, 400, 500],
+})
+'''
+
+ASOF_CASES = {
+    "backward on one key": 'result = pd.merge_asof(trips, fares, on="t")',
+    "backward by a group": 'result = pd.merge_asof(trips, fares, on="t", by="line")',
+    "forward by a group": 'result = pd.merge_asof(trips, fares, on="t", by="line", direction="forward")',
+    "forward on one key": 'result = pd.merge_asof(trips, fares, on="t", direction="forward")',
+    "no exact matches": 'result = pd.merge_asof(trips, fares, on="t", by="line", allow_exact_matches=False)',
+    "forward, no exact matches": ('result = pd.merge_asof(trips, fares, on="t", direction="forward", '
+                                  'allow_exact_matches=False)'),
+    "tolerance": 'result = pd.merge_asof(trips, fares, on="t", by="line", tolerance=1)',
+    "tolerance 0": 'result = pd.merge_asof(trips, fares, on="t", tolerance=0, direction="forward")',
+    "keys of two names keep both, suffixes on the others": (
+        'result = pd.merge_asof(trips, tariffs, left_on="t", right_on="since", left_by="line", '
+        'right_by="route")'),
+    "left_on/right_on with by": (
+        'result = pd.merge_asof(trips, fares.drop(columns=["zone"]).rename(columns={"t": "since"}), '
+        'left_on="t", right_on="since", by="line")'),
+    "own suffixes": ('result = pd.merge_asof(trips, tariffs, left_on="t", right_on="since", '
+                     'suffixes=("", "_tariff"))'),
+    "float keys": ('trips["t"] = trips["t"] / 2\nfares["t"] = fares["t"] / 2\n'
+                   'result = pd.merge_asof(trips, fares, on="t", by="line", tolerance=0.5)'),
+    "empty left": 'result = pd.merge_asof(trips[trips["pax"] > 100], fares, on="t", by="line")',
+    "empty right": 'result = pd.merge_asof(trips, fares[fares["zone"] > 9], on="t", by="line")',
+    "after a sort": ('trips = trips.sort_values("t", ascending=False).sort_values("t")\n'
+                     'result = pd.merge_asof(trips, fares, on="t", by="line")'),
+}
+
+
+@pytest.mark.parametrize("source", list(ASOF_CASES.values()), ids=list(ASOF_CASES))
+def test_merge_asof_matches_pandas(source: str) -> None:
+    result = differential(ASOF + source + "\n")
+    assert not [s for s in result.sites if s.status == "todo"], result.converted_text
+
+
+def test_merge_asof_on_datetimes_with_a_timedelta_tolerance() -> None:
+    result = differential('''
+        import pandas as pd
+        visits = pd.DataFrame({"at": ["2024-03-01 09:00", "2024-03-01 12:30", "2024-03-03 08:00",
+                                      "2024-03-09 10:00"],
+                               "ward": ["b", "a", "a", "b"], "n": [1, 2, 3, 4]})
+        rotas = pd.DataFrame({"from": ["2024-03-01 00:00", "2024-03-01 12:30", "2024-03-02 00:00"],
+                              "ward": ["a", "a", "b"], "nurse": ["Ilse", "Øyvind", "Maëlle"]})
+        visits["at"] = pd.to_datetime(visits["at"])
+        rotas["from"] = pd.to_datetime(rotas["from"])
+        result = pd.merge_asof(visits, rotas, left_on="at", right_on="from", by="ward",
+                               tolerance=pd.Timedelta(days=2))
+        ''')
+    assert "tolerance=pl.select(pl.duration(days=2)).item()" in result.converted_text
+
+
+def test_merge_asof_code_and_confidence() -> None:
+    text = converted_text(ASOF + 'result = pd.merge_asof(trips, tariffs, left_on="t", '
+                          'right_on="since", left_by="line", right_by="route")\n')
+    code = one_line(text.split("result = ", 1)[1])
+    assert code == one_line('''
+        trips.rename({"t": "t_x", "pax": "pax_x"}).join_asof(
+            tariffs.rename({"t": "t_y", "pax": "pax_y"})
+            .with_columns(pl.col("route").alias("__asof_by_0")),
+            left_on="t_x", right_on="since", by_left="line", by_right="__asof_by_0",
+            coalesce=False, check_sortedness=False)''')
+    found, _ = site(ASOF + 'result = pd.merge_asof(trips, fares, on="t", by="line")\n', "pd.merge_asof")
+    assert found.status == "converted" and found.confidence == 0.95  # a missing `by` value
+    found, _ = site(ASOF + 'result = pd.merge_asof(trips, fares, on="t")\n', "pd.merge_asof")
+    assert found.confidence == 1.0
+
+
+ASOF_TODOS = [
+    pytest.param('result = pd.merge_asof(trips, fares, on="t", direction="nearest")', "nearest",
+                 id="nearest"),
+    pytest.param('result = pd.merge_asof(trips, fares, left_index=True, right_index=True)',
+                 "left_index", id="index"),
+    pytest.param('result = pd.merge_asof(trips, fares, on="t", tolerance=n)',
+                 "tolerance", id="computed tolerance"),
+    pytest.param('result = pd.merge_asof(trips, fares.groupby("t").sum(), on="t")',
+                 "index", id="right keeps an index"),
+]
+
+
+@pytest.mark.parametrize(("source", "reason"), ASOF_TODOS)
+def test_merge_asof_todos(source: str, reason: str) -> None:
+    text = check_todo(ASOF + 'n = int("1")\n' + source + "\n", "pd.merge_asof")
+    assert reason in text
+
+
+def test_merge_asof_with_unknown_columns_matches_pandas(tmp_path, monkeypatch) -> None:
+    # read_csv without --data: the shared columns are found from the schemas at run time
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "fares.csv").write_text("t,line,fare,pax\n0,north,1.5,1\n3,south,2.5,2\n4,north,3.0,3\n")
+    differential(ASOF + 'fares_read = pd.read_csv("fares.csv")\n'
+                 'result = pd.merge_asof(trips, fares_read, on="t", by="line")\n')

@@ -17,7 +17,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import PandasCall, RuleContext, Unsupported
-from porter.translate.values import Column, Frame, Value
+from porter.translate.values import Column, Frame, Opaque, Scalar, Value
 
 HOW = {"inner": "inner", "left": "left", "right": "right", "outer": "full", "cross": "cross"}
 MERGE_PARAMS = ("right", "how", "on", "left_on", "right_on", "left_index", "right_index", "sort",
@@ -316,6 +316,197 @@ def _sort_keys(how: str, lside: _Side, rside: _Side, coalesced: bool) -> object:
                  for a, b in zip(lside.keys, rside.keys)]
         return exprs[0] if len(exprs) == 1 else exprs
     return emit.names_arg(rside.keys if how == "right" else lside.keys)
+
+
+# -- merge_asof -----------------------------------------------------------------------------
+
+ASOF_PARAMS = ("left", "right", "on", "left_on", "right_on", "left_index", "right_index", "by",
+               "left_by", "right_by", "suffixes", "tolerance", "allow_exact_matches", "direction")
+ASOF_BY_MISSING = ("a missing value in a `by` column matches a missing value in the other frame "
+                   "in pandas and matches nothing in Polars (the row gets no match)")
+
+
+@rule("pd.merge_asof")
+def merge_asof(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.merge_asof(left, right, on=, by=, direction=, ...) -> left.join_asof(right, ...).
+
+    Reads on / left_on+right_on, by / left_by+right_by, direction, allow_exact_matches,
+    tolerance and suffixes.
+
+    Handles: the left's rows in their order, each with the last right row whose key is <= its
+    own (backward) or the first whose key is >= (forward), as pandas picks them among equal
+    keys; allow_exact_matches=False; tolerance as a number or a pd.Timedelta; pandas' columns:
+    the left ones, then the right ones without the `by` columns and without the key when both
+    sides call it the same (left_on/right_on of two names keep both, and left_by/right_by of
+    two names keep the right one, in the right frame's order); suffixes on both sides for the
+    other columns both frames have; an int key against a float one.
+    Caveats: direction="nearest" is a TODO (pandas prefers the backward row on a tie and the
+    first of equal forward keys, Polars the last); a missing `by` value matches a missing one
+    in pandas and nothing in Polars (0.95); an int column of the right frame with an unmatched
+    row stays an integer column with missing values (float in pandas), as for merge.
+    """
+    args = _named(call, ASOF_PARAMS)
+    left, right = args.arg("left"), args.arg("right")
+    for side, value in (("left", left), ("right", right)):
+        if not isinstance(value, Frame):
+            raise ctx.todo(f"the {side} side is not a frame porter tracks: make it a "
+                           "LazyFrame (pl.from_pandas(...).lazy()) where it is built")
+    assert isinstance(left, Frame) and isinstance(right, Frame)
+    if args.const("left_index", None, False) or args.const("right_index", None, False):
+        raise ctx.todo("left_index/right_index match on row labels: make the labels a column "
+                       "and use on=")
+    if left.index or right.index:
+        raise ctx.todo("a frame keeps an index (after a groupby): call reset_index() first")
+    direction = args.const("direction", None, "backward", kinds=(str,))
+    if direction == "nearest":
+        raise ctx.todo("direction='nearest': on a tie pandas takes the backward row and, among "
+                       "equal forward keys, the first; Polars' strategy='nearest' takes the "
+                       "last: join backward and forward and pick the nearer row")
+    if direction not in ("backward", "forward"):
+        raise ctx.todo(f"direction={direction!r} (pandas raises)")
+    exact = args.const("allow_exact_matches", None, True, kinds=(bool,))
+    lkey, rkey = _asof_keys(args, ctx)
+    lby, rby = _asof_by(args, ctx)
+    for frame, names in ((left, (lkey, *lby)), (right, (rkey, *rby))):
+        _check_keys(frame, names, ctx)
+    kinds = {left.dtype(lkey), right.dtype(rkey)}
+    if "date" in kinds and len(kinds) > 1:
+        raise ctx.todo("a date key against a datetime key: cast both to one type first")
+    tolerance = _asof_tolerance(args, ctx)
+
+    # the key and the `by` columns pandas keeps once: same name on both sides
+    once = {b for a, b in zip(lby, rby) if a == b} | ({lkey} if lkey == rkey else set())
+    lside = _Side(left.code, left.columns, dict(left.dtypes), (lkey, *lby), ())
+    rside = _Side(right.code, right.columns, dict(right.dtypes), (rkey, *rby), ())
+    lside, rside = _asof_suffixes(args, lside, rside, once, ctx)
+    lside, rside = _common_key_types(lside, rside)
+    lkey, *lby = lside.keys
+    rkey, *rby = rside.keys
+
+    rcode = rside.code
+    renamed_by: list[str] = []
+    for a, b in zip(lby, rby):
+        if a == b:
+            renamed_by.append(b)
+        else:
+            # Polars drops the right `by` columns; pandas keeps one named otherwise: join on a
+            # copy, so the column itself stays where the right frame has it
+            copy = f"__asof_by_{len(renamed_by)}"
+            rcode = rcode.method("with_columns", emit.col(b).method("alias", copy))
+            renamed_by.append(copy)
+    kwargs: dict[str, object] = {}
+    if lkey == rkey:
+        kwargs["on"] = lkey
+    else:
+        kwargs["left_on"], kwargs["right_on"] = lkey, rkey
+    if lby:
+        if list(lby) == renamed_by:
+            kwargs["by"] = emit.names_arg(lby)
+        else:
+            kwargs["by_left"] = emit.names_arg(lby)
+            kwargs["by_right"] = emit.names_arg(renamed_by)
+        ctx.lower(ASOF_BY_MISSING, 0.95)
+    if direction != "backward":
+        kwargs["strategy"] = direction
+    if tolerance is not None:
+        kwargs["tolerance"] = tolerance
+    if not exact:
+        kwargs["allow_exact_matches"] = False
+    if lkey != rkey:
+        kwargs["coalesce"] = False  # pandas keeps both key columns
+    if lby:
+        # Polars cannot check the keys' order within groups and would warn; pandas has
+        # checked that both keys are sorted (it raises otherwise)
+        kwargs["check_sortedness"] = False
+    code = lside.code.method("join_asof", rcode, **kwargs)
+    columns = None
+    if lside.columns is not None and rside.columns is not None:
+        columns = (*lside.columns,
+                   *(c for c in rside.columns if not (c in once and c in rside.keys)))
+    dtypes = {**rside.dtypes, **lside.dtypes} if columns is not None else {}
+    return Frame(code, columns=columns, labels_intact=True,
+                 dtypes=tuple((c, dtypes[c]) for c in columns or () if c in dtypes))
+
+
+def _one_key(value: Any, what: str, ctx: RuleContext) -> str | None:
+    names = _names(value, what, ctx)
+    if names is None:
+        return None
+    if len(names) != 1:
+        raise ctx.todo(f"{what} must name one column (pandas asof-joins on one key)")
+    return names[0]
+
+
+def _asof_keys(args: PandasCall, ctx: RuleContext) -> tuple[str, str]:
+    on = _one_key(args.const("on", None, None), "on", ctx)
+    left_on = _one_key(args.const("left_on", None, None), "left_on", ctx)
+    right_on = _one_key(args.const("right_on", None, None), "right_on", ctx)
+    if on is not None:
+        if left_on is not None or right_on is not None:
+            raise ctx.todo("on= together with left_on/right_on (pandas raises MergeError)")
+        return on, on
+    if left_on is None or right_on is None:
+        raise ctx.todo("merge_asof needs on= or both left_on= and right_on=")
+    return left_on, right_on
+
+
+def _asof_by(args: PandasCall, ctx: RuleContext) -> tuple[tuple[str, ...], tuple[str, ...]]:
+    by = _names(args.const("by", None, None), "by", ctx)
+    left_by = _names(args.const("left_by", None, None), "left_by", ctx)
+    right_by = _names(args.const("right_by", None, None), "right_by", ctx)
+    if by is not None:
+        if left_by is not None or right_by is not None:
+            raise ctx.todo("by= together with left_by/right_by (pandas raises MergeError)")
+        return by, by
+    if left_by is None and right_by is None:
+        return (), ()
+    if left_by is None or right_by is None or len(left_by) != len(right_by):
+        raise ctx.todo("left_by and right_by must name as many columns (pandas raises)")
+    return left_by, right_by
+
+
+def _asof_tolerance(args: PandasCall, ctx: RuleContext) -> object:
+    if not args.has("tolerance"):
+        return None
+    value = args.arg("tolerance")
+    if isinstance(value, Opaque) and value.is_const:
+        const = value.const
+        if const is None:
+            return None
+        if isinstance(const, (int, float)) and not isinstance(const, bool) and const >= 0:
+            return const
+    if isinstance(value, Scalar) and value.pytype == "timedelta":
+        return value.code  # a Python timedelta, which join_asof reads
+    raise ctx.todo("tolerance must be a number or a pd.Timedelta written out")
+
+
+def _asof_suffixes(args: PandasCall, lside: _Side, rside: _Side, once: set[str],
+                   ctx: RuleContext) -> tuple[_Side, _Side]:
+    """pandas suffixes the columns both frames have, on both sides, except the columns it
+    keeps once (J05); Polars would suffix only the right one."""
+    suffixes = args.const("suffixes", None, ("_x", "_y"))
+    if not (isinstance(suffixes, (tuple, list)) and len(suffixes) == 2
+            and all(s is None or isinstance(s, str) for s in suffixes)):
+        raise ctx.todo("suffixes must be two strings")
+    lsuf, rsuf = (s or "" for s in suffixes)
+    if lside.columns is None or rside.columns is None:
+        keys = tuple(dict.fromkeys((*lside.keys, *rside.keys)))
+        if set(keys) - once:
+            ctx.lower("a key column whose name the other frame also has keeps its name here; "
+                      "pandas suffixes it too (run with --data to know the columns)", 0.9)
+        right_names = rside.columns if rside.columns is not None \
+            else rside.code.method("collect_schema").method("names")
+        left_names = lside.columns if lside.columns is not None \
+            else lside.code.method("collect_schema").method("names")
+        return (_renamed_at_run_time(lside, right_names, keys, lsuf),
+                _renamed_at_run_time(rside, left_names, keys, rsuf))
+    shared = [c for c in lside.columns if c in rside.columns and c not in once]
+    by_names = set(lside.keys[1:]) | set(rside.keys[1:])
+    if any(c in by_names for c in shared):
+        raise ctx.todo("a `by` column whose name the other frame also has as another column")
+    if shared and not lsuf and not rsuf:
+        raise ctx.todo("columns overlap but no suffix is given (pandas raises ValueError)")
+    return _renamed(lside, shared, lsuf), _renamed(rside, shared, rsuf)
 
 
 # -- concat ---------------------------------------------------------------------------------
