@@ -48,8 +48,9 @@ class MappingTable:
 
 def _walk(table: dict[str, object], prefix: str) -> Iterator[tuple[str, dict[str, object]]]:
     if ENTRY_FIELDS & table.keys():
-        yield prefix, table
-        return
+        # an entry may have entries under it: [series.rolling] and [series.rolling.mean]
+        yield prefix, {k: v for k, v in table.items() if not isinstance(v, dict)}
+        table = {k: v for k, v in table.items() if isinstance(v, dict)}
     for name, value in table.items():
         if isinstance(value, dict):
             yield from _walk(value, f"{prefix}.{name}" if prefix else name)

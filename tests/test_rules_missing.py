@@ -172,3 +172,62 @@ def test_frame_fillna_with_text_columns_lowers_confidence() -> None:
 
 def test_chained_inplace_fillna_changes_nothing() -> None:
     differential(FRAME + 'df["a"].fillna(0, inplace=True)\nresult = df\n')
+
+
+# -- interpolate ------------------------------------------------------------------------------------
+
+# leading and trailing runs of missing values (NaN and None side by side), gaps of one and of
+# several, integers with a gap, a column with nothing to fill, an all-missing column
+GAPS = """\
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({
+    "a": [None, np.nan, 1.0, np.nan, None, 4.0, np.nan, 10.0, np.nan, None],
+    "i": [1, None, 4, None, None, 5, 7, 7, 8, 9],
+    "n": [3, 1, 4, 1, 5, 9, 2, 6, 5, 3],
+    "z": [np.nan, None, np.nan, np.nan, np.nan, np.nan, None, np.nan, np.nan, np.nan],
+})
+"""
+
+
+@pytest.mark.parametrize("expr", [
+    'df["a"].interpolate()', 'df["a"].interpolate(method="linear")',
+    'df["a"].interpolate(limit_direction="forward")', 'df["a"].interpolate(limit_direction="both")',
+    'df["a"].interpolate(limit_direction="backward")', 'df["a"].interpolate(limit_area="inside")',
+    'df["a"].interpolate(limit_direction="both", limit_area="inside")',
+    'df["i"].interpolate()', 'df["n"].interpolate()', 'df["z"].interpolate()',
+    'df["a"].interpolate().round(1)',
+])
+def test_interpolate_matches_pandas(expr: str) -> None:
+    result = differential(GAPS + f"df['r'] = {expr}\nresult = df\n")
+    assert not result.todos, result.converted_text
+
+
+@pytest.mark.parametrize("frame", [
+    pytest.param(GAPS + 'df = df[df["n"] > 100]\n', id="no rows"),
+    pytest.param(GAPS + 'df = df[df["n"] == 9]\n', id="one row"),
+    pytest.param(GAPS + 'df = df[df["n"] > 2]\n', id="filtered: positions, not labels"),
+])
+def test_interpolate_on_small_frames(frame: str) -> None:
+    differential(frame + 'df["r"] = df["a"].interpolate()\ndf["s"] = df["i"].interpolate()\n'
+                 'result = df\n')
+
+
+def test_interpolate_ports() -> None:
+    check_ports(GAPS + 'df["r"] = df["a"].interpolate()\n',
+                'pl.col("a").interpolate().forward_fill()')
+
+
+@pytest.mark.parametrize("before", [
+    pytest.param('df["r"] = df["a"].interpolate(limit=1)', id="limit"),
+    pytest.param('df["r"] = df["a"].interpolate(method="index")', id="by the index"),
+    pytest.param('df["r"] = df["a"].interpolate(limit_area="outside")', id="outside"),
+])
+def test_interpolate_todo(before: str) -> None:
+    check_todo(GAPS + before + "\n", "series.interpolate")
+
+
+def test_interpolate_of_a_column_that_may_be_integer_lowers_confidence() -> None:
+    result = convert(GAPS + 'df["r"] = df["n"].interpolate()\n')
+    site = next(s for s in result.sites if s.key == "series.interpolate")
+    assert site.confidence == 0.98 and "integer" in site.message

@@ -33,6 +33,24 @@ PORTS = [
                  id="quantile is linear as in pandas"),
     pytest.param('r = (df["v"] > 2).any()', '(pl.col("v") > 2).fill_null(False).any()',
                  id="any of a comparison"),
+    pytest.param('r = df["v"].rolling(3, min_periods=2).mean()',
+                 'pl.col("v").rolling_mean(3, min_samples=2)', id="rolling mean"),
+    pytest.param('r = df["v"].rolling(3).sum()', 'pl.col("v").rolling_sum(3)',
+                 id="min_periods defaults to the window, as min_samples does"),
+    pytest.param('r = df["n"].rolling(2, center=True).max()',
+                 'pl.col("n").cast(pl.Float64).rolling_max(2, center=True)',
+                 id="integers become floats as in pandas"),
+    pytest.param('r = df["v"].rolling(3, min_periods=1).count()',
+                 'pl.col("v").is_not_null().cast(pl.Float64).rolling_sum(3, min_samples=1)',
+                 id="rolling count"),
+    pytest.param('r = df["v"].expanding().sum()', 'pl.col("v").rolling_sum(2 ** 31 - 1, min_samples=1)',
+                 id="expanding sum over a window as long as the column"),
+    pytest.param('r = df["v"].rolling(3, min_periods=2).apply(lambda w: abs(w[-1] - np.nanmedian(w)), raw=True)',
+                 '(pl.col("v") - pl.col("v").rolling_median(3, min_samples=2)).fill_nan(None).abs()',
+                 id="apply: newest value from the window's median"),
+    pytest.param('r = df["v"].rolling(3, min_periods=2).apply(lambda w: w[-1] * 2, raw=True)',
+                 'pl.when(pl.col("v").is_not_null().cast(pl.Int64).rolling_sum(3, min_samples=1) >= 2)'
+                 '.then(pl.col("v") * 2)', id="apply: gated where no reduction gates it"),
 ]
 
 
@@ -45,7 +63,22 @@ TODOS = [
     pytest.param('r = df["v"].cumsum(skipna=False)', "series.cumsum", id="cumsum skipna=False"),
     pytest.param('r = df["v"].quantile([0.25, 0.75])', "series.quantile", id="several quantiles"),
     pytest.param('r = df["k"].any()', "series.any", id="any of text"),
-    pytest.param('r = df["v"].rolling(2).mean()', "series.rolling", id="rolling window"),
+    pytest.param('r = df["v"].rolling(3, closed="left").mean()', "series.rolling", id="closed"),
+    pytest.param('r = df["v"].rolling(3, step=2).mean()', "series.rolling", id="step"),
+    pytest.param('r = df["v"].rolling(2).quantile(0.5)', "series.rolling.quantile", id="rolling quantile"),
+    pytest.param('r = df["v"].expanding().median()', "series.expanding.median", id="expanding median"),
+    pytest.param('r = df["v"].rolling(3, min_periods=1).apply(lambda w: w[0], raw=True)',
+                 "series.rolling.apply", id="apply reading another position"),
+    pytest.param('r = df["v"].rolling(3, min_periods=1).apply(lambda w: np.median(w), raw=True)',
+                 "series.rolling.apply", id="apply np.median of a window that may hold NaN"),
+    pytest.param('r = df["v"].rolling(3, min_periods=1).apply(lambda w: w.mean(), raw=True)',
+                 "series.rolling.apply", id="apply ndarray mean of a window that may hold NaN"),
+    pytest.param('r = df["v"].rolling(3).apply(lambda w: len(w), raw=True)', "series.rolling.apply",
+                 id="apply len"),
+    pytest.param('r = df["v"].rolling(3, center=True).apply(lambda w: w[-1], raw=True)',
+                 "series.rolling.apply", id="apply newest of a centred window"),
+    pytest.param('r = df["v"].rolling(3, min_periods=0).apply(np.nansum, raw=True)',
+                 "series.rolling.apply", id="apply a numpy function by name"),
 ]
 
 
@@ -124,3 +157,144 @@ def test_group_windows_on_an_empty_frame() -> None:
 ])
 def test_group_windows_porter_cannot_read_are_todos(expr: str) -> None:
     assert convert(GROUPED + f'df["w"] = {expr}\n').todos
+
+
+# -- rolling and expanding windows ---------------------------------------------------------------
+
+# NaN and None side by side, missing values in the middle, a run of missing values longer than
+# a window, integers, booleans from a comparison
+WINDOWS = '''
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"v": [1.5, np.nan, None, 3.0, 3.0, -2.0, None, 7.25, np.nan, np.nan, np.nan, 0.1, 0.2, 0.3],
+                   "n": [4, 2, 2, 7, 1, 0, -3, 5, 5, 9, 1, 2, 8, 6]})
+df["flag"] = df["v"] > 1
+'''
+ONE_ROW = '''
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"v": [np.nan], "n": [3]})
+'''
+NO_ROWS = '''
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"v": [1.0], "n": [1]})
+df = df[df["n"] > 5]
+'''
+
+ROLLING = [
+    'df["v"].rolling(3).{how}()', 'df["v"].rolling(3, min_periods=1).{how}()',
+    'df["v"].rolling(3, min_periods=2).{how}()', 'df["v"].rolling(4, min_periods=2, center=True).{how}()',
+    'df["v"].rolling(3, 1, True).{how}()', 'df["n"].rolling(2).{how}()',
+    'df["n"].rolling(5, min_periods=0).{how}()', 'df["v"].expanding().{how}()',
+    'df["v"].expanding(3).{how}()', 'df["n"].expanding(min_periods=0).{how}()',
+]
+
+
+@pytest.mark.parametrize("how", ["mean", "sum", "min", "max", "median", "std", "var", "count"])
+@pytest.mark.parametrize("frame", [pytest.param(WINDOWS, id="missing values"),
+                                   pytest.param(ONE_ROW, id="one row"),
+                                   pytest.param(NO_ROWS, id="no rows")])
+def test_windows_match_pandas(frame: str, how: str) -> None:
+    forms = [f for f in ROLLING if not (how == "median" and "expanding" in f)]
+    lines = "".join(f"df['r{i}'] = {form.format(how=how)}\n" for i, form in enumerate(forms))
+    result = differential(frame + lines + "result = df\n")
+    assert not result.todos, result.converted_text
+
+
+@pytest.mark.parametrize("expr", [
+    'df["v"].rolling(3).std(ddof=0)', 'df["v"].rolling(3, min_periods=1).var(0)',
+    'df["v"].expanding(2).std(ddof=2)', 'df["flag"].rolling(2).sum()',
+    'df["v"].rolling(1).mean()', 'df["v"].rolling(20, min_periods=1).max()',
+])
+def test_window_options_match_pandas(expr: str) -> None:
+    result = differential(WINDOWS + f"df['r'] = {expr}\nresult = df\n")
+    assert not result.todos, result.converted_text
+
+
+def test_window_sites_say_where_digits_can_differ() -> None:
+    result = convert(WINDOWS + 'df["a"] = df["v"].rolling(3).std()\n'
+                     'df["b"] = df["n"].rolling(3, min_periods=1).sum()\n'
+                     'df["c"] = df["v"].rolling(3, min_periods=1).mean()\n')
+    sites = {s.key: s for s in result.sites if s.key.startswith("series.rolling.")}
+    assert sites["series.rolling.std"].confidence == 0.95
+    assert sites["series.rolling.mean"].confidence == 0.98
+    assert sites["series.rolling.sum"].confidence == 1.0  # integers add exactly
+
+
+@pytest.mark.parametrize("before, key, reason", [
+    ('r = df["v"].rolling("2D").mean()', "series.rolling", "a time window"),
+    ('r = df["v"].rolling(2, win_type="triang").mean()', "series.rolling", "win_type"),
+    ('r = df["v"].rolling(2, min_periods=3).mean()', "series.rolling", "pandas raises"),
+    ('r = df["k"].rolling(2).max()', "series.rolling", "str column"),
+    ('r = df["v"].rolling(3).apply(lambda w: w[-1])', "series.rolling.apply", "reads the window"),
+    ('r = df["v"].rolling(3).apply(lambda w: w.sum(), raw=True, engine="numba")',
+     "series.rolling.apply", "engine"),
+])
+def test_window_forms_pandas_cannot_run_here_are_todos(before: str, key: str, reason: str) -> None:
+    # pandas needs a DatetimeIndex, scipy or numba for these, or raises (a text column, w[-1]
+    # on a Series window is a label): only the conversion is checked
+    result = convert(WINDOWS.replace('"n": [4,', '"k": list("abcdefghijklmn"), "n": [4,') + before + "\n")
+    assert [s.key for s in result.todos] == [key], result.converted_text
+    assert reason in result.todos[0].message
+
+
+def test_a_window_kept_in_a_name_stays_pandas() -> None:
+    # the name holds a pandas Rolling object (handed over): the same values, not yet ported
+    differential(WINDOWS + 'w = df["v"].rolling(3, min_periods=1)\n'
+                 'df["lo"] = w.min()\ndf["hi"] = w.max()\nresult = df\n')
+
+
+def test_a_window_method_porter_does_not_port_runs_on_pandas() -> None:
+    result = differential(WINDOWS + 'df["q"] = df["v"].rolling(3, min_periods=1).quantile(0.25)\n'
+                          'result = df\n')
+    assert any(s.key == "series.rolling.quantile" for s in result.todos)
+
+
+# -- apply(func) over a window ------------------------------------------------------------------
+
+FUNCTIONS = '''
+def jump_from_median(window):
+    # distance of the newest reading from the median of the window
+    return abs(window[-1] - np.nanmedian(window))
+
+
+def spread(w):
+    """Highest minus lowest."""
+    return np.nanmax(w) - np.nanmin(w)
+'''
+
+
+@pytest.mark.parametrize("frame", [pytest.param(WINDOWS, id="missing values"),
+                                   pytest.param(ONE_ROW, id="one row"),
+                                   pytest.param(NO_ROWS, id="no rows")])
+@pytest.mark.parametrize("expr", [
+    'df["v"].rolling(3, min_periods=2).apply(jump_from_median, raw=True)',
+    'df["v"].rolling(3).apply(jump_from_median, raw=True)',
+    'df["n"].rolling(3, min_periods=1).apply(jump_from_median, raw=True)',
+    'df["v"].rolling(4, min_periods=1).apply(spread, raw=True)',
+    'df["v"].rolling(3, min_periods=3).apply(spread)',
+    'df["v"].rolling(3, min_periods=2).apply(lambda w: w[-1] * 2 + 1, raw=True)',
+    'df["v"].rolling(2, min_periods=1).apply(lambda w: -w[-1], raw=True)',
+    'df["v"].rolling(3, min_periods=1).apply(lambda w: 5, raw=True)',
+    'df["v"].rolling(3).apply(lambda w: np.max(w) - w.min(), raw=True)',
+    'df["v"].rolling(3).apply(lambda w: w.std(), raw=True)',
+    'df["v"].rolling(3, min_periods=1).apply(lambda w: w.mean() / 2)',
+    'df["v"].rolling(3, min_periods=2).apply(lambda w: w.std() + w.median())',
+    'df["v"].rolling(3, min_periods=2).apply(lambda w: w.iloc[-1] - w.max())',
+    'df["v"].rolling(3, min_periods=2).apply(lambda w: np.nanstd(w, ddof=1), raw=True)',
+    'df["v"].rolling(3, min_periods=2, center=True).apply(lambda w: np.abs(np.nanmean(w) - 1), raw=True)',
+    'df["v"].rolling(3, min_periods=2).apply(lambda w: w[-1] / np.nansum(w), raw=True)',
+    'df["n"].expanding(2).apply(lambda w: np.nansum(w) + 1, raw=True)',
+    'df["v"].expanding().apply(lambda w: w[-1] - np.nanmax(w), raw=True)',
+])
+def test_window_functions_match_pandas(frame: str, expr: str) -> None:
+    result = differential(frame + FUNCTIONS + f"df['r'] = {expr}\nresult = df\n")
+    assert not result.todos, result.converted_text
+
+
+def test_window_functions_are_expressions_not_python_calls() -> None:
+    text = check_ports(WINDOWS + FUNCTIONS + 'df["j"] = df["v"].rolling(3, min_periods=2)'
+                       '.apply(jump_from_median, raw=True)\n',
+                       '(pl.col("v") - pl.col("v").rolling_median(3, min_samples=2))')
+    assert "map_elements" not in text and "rolling_map" not in text

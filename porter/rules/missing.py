@@ -190,3 +190,44 @@ def fill_direction(call: PandasCall, ctx: RuleContext) -> Value:
         return derive(receiver, code, same_rows=True)
     assert isinstance(receiver, Column)
     return derived_column(receiver, receiver.code.method(method, *limits), dtype=receiver.dtype)
+
+
+@rule("series.interpolate")
+def interpolate(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.interpolate() -> .interpolate().forward_fill(): straight lines between the values
+    present, by position (method="linear" ignores the index, as Polars does).
+
+    Handles: pandas (limit_direction="forward") also fills the trailing missing values with
+    the last value present and leaves the leading ones missing, where Polars' interpolate
+    leaves both: forward_fill() after it fills only the trailing ones.
+    limit_direction="backward" fills the leading ones instead (backward_fill), "both" both;
+    limit_area="inside" fills neither.
+    Caveats: an integer column without missing values stays integer in pandas and becomes
+    float in Polars (same values): lowered confidence where the column may be integer. Other
+    methods, limit= and limit_area="outside" are TODOs.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "method", "limit_direction", "limit_area", "axis", positional=1)
+    method = call.const("method", 0, "linear", kinds=(str,))
+    if method != "linear":
+        raise Unsupported(f'method="{method}"')
+    if call.const("axis", None, 0, kinds=(int, str)) not in (0, "index", "rows"):
+        raise Unsupported("interpolating along the other axis")
+    direction = call.const("limit_direction", None, None, kinds=(str,))
+    area = call.const("limit_area", None, None, kinds=(str,))
+    if direction not in (None, "forward", "backward", "both") or area not in (None, "inside"):
+        raise Unsupported(f"limit_direction={direction!r}, limit_area={area!r}")
+    if column.dtype in ("str", "bool", "datetime", "date", "category", "enum"):
+        raise Unsupported(f"interpolating a {column.dtype} column (pandas raises or keeps it "
+                          "as objects)")
+    if column.dtype != "float":
+        ctx.lower("an integer column without missing values stays integer in pandas; Polars' "
+                  "interpolate makes it float (the same values)", 0.98)
+    code = column.code.method("interpolate")
+    if area is None:
+        if direction in (None, "forward", "both"):
+            code = code.method("forward_fill")
+        if direction in ("backward", "both"):
+            code = code.method("backward_fill")
+    return derived_column(column, code, dtype="float")

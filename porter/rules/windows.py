@@ -8,14 +8,17 @@ in between), so the expression sees the rows in pandas' order.
 
 from __future__ import annotations
 
+import libcst as cst
+
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
+from porter.rules.elementwise import _checked, body_expression, function_value
 from porter.rules.groupby import agg_expr
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_of, derived_column,
 )
-from porter.translate.values import Column, Grouped, Opaque, Value
+from porter.translate.values import Accessor, Column, Grouped, Opaque, Value
 
 CUMULATIVE = {"cumsum": "cum_sum", "cumprod": "cum_prod", "cummax": "cum_max", "cummin": "cum_min"}
 
@@ -190,3 +193,334 @@ def group_cumcount(call: PandasCall, ctx: RuleContext) -> Value:
         position = emit.binop(emit.binop(emit.pl("len"), "-", 1), "-", position)
     base = column_of(grouped.frame, grouped.keys[0])
     return derived_column(base, _window(grouped, position), dtype="int", name=None)
+
+
+# -- rolling and expanding windows --------------------------------------------------------------
+#
+# `s.rolling(n)` / `s.expanding()` make an Accessor of kind "rolling" / "expanding" holding the
+# window's arguments; its method (`.mean()`) is the key `series.rolling.mean`. Both libraries
+# skip missing values inside a window and give a missing value where fewer than min_periods
+# (min_samples) values are present, so `rolling_mean(n, min_samples=m)` is pandas' window.
+# pandas' result is always float (a window of integers too): integer, boolean and unknown
+# columns are cast to Float64 first, which also keeps sums of integers exact.
+
+# A window that holds the whole column: Polars' rolling kernels then give pandas' expanding
+# values exactly (the same online sums with nothing leaving the window), where a cum_sum adds
+# in another order and differs in the last digits.
+WHOLE_COLUMN = emit.binop(emit.binop(2, "**", 31), "-", 1)
+
+WINDOW_AGGREGATES = ("mean", "sum", "min", "max", "median", "std", "var", "count")
+NOT_NUMERIC = ("str", "datetime", "date", "category", "enum")
+
+
+def _window_of(call: PandasCall) -> tuple[Column, dict[str, object]]:
+    accessor = call.receiver
+    assert isinstance(accessor, Accessor)
+    return accessor.column, dict(accessor.options)
+
+
+def _numeric(column: Column, ctx: RuleContext) -> Code:
+    """The column as pandas hands it to a window: float64 (True is 1.0; a comparison's null
+    is False)."""
+    if column.dtype in NOT_NUMERIC:
+        raise Unsupported(f"a window over a {column.dtype} column (pandas raises)")
+    code = ctx.bool_expr(column, column.frame) if column.dtype == "bool" else column.code
+    return code if column.dtype == "float" else code.method("cast", emit.atom("pl.Float64"))
+
+
+def _window_args(options: dict[str, object], kind: str) -> tuple[list[object], dict[str, object]]:
+    """Polars' window arguments: the size, min_samples unless it is the size (Polars' default),
+    center when it is True."""
+    if kind == "expanding":
+        return [WHOLE_COLUMN], {"min_samples": options["min_periods"]}
+    size, least = options["window"], options["min_periods"]
+    kwargs: dict[str, object] = {}
+    if least != size:
+        kwargs["min_samples"] = least
+    if options.get("center"):
+        kwargs["center"] = True
+    return [size], kwargs
+
+
+@rule("series.rolling")
+def rolling(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.rolling(n, min_periods=m, center=c) -> a window waiting for its method
+    (`series.rolling.mean` ...).
+
+    Handles: min_periods defaults to the window size as in pandas; center=True.
+    Caveats: time windows ("2D", on=), win_type, closed, step and method="table" are TODOs.
+    """
+    column = _column(call)
+    ctx.reject_unknown(call, "window", "min_periods", "center", positional=3)
+    window = call.const("window", 0, kinds=(int, str))
+    if isinstance(window, str):
+        raise Unsupported("a time window")
+    if window < 1:
+        raise Unsupported(f"a window of {window} rows")
+    least = call.const("min_periods", 1, None, kinds=(int,))
+    least = window if least is None else least
+    if not 0 <= least <= window:
+        raise Unsupported(f"min_periods={least} outside 0..{window} (pandas raises)")
+    center = call.const("center", 2, False, kinds=(bool,))
+    _numeric(column, ctx)
+    options = (("window", window), ("min_periods", least), ("center", center))
+    return Accessor(column.code, column=column, kind="rolling", options=options)
+
+
+@rule("series.expanding")
+def expanding(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.expanding(min_periods=1) -> a window from the first row to each row, waiting for its
+    method (`series.expanding.sum` ...)."""
+    column = _column(call)
+    ctx.reject_unknown(call, "min_periods", positional=1)
+    least = call.const("min_periods", 0, 1, kinds=(int,))
+    if least < 0:
+        raise Unsupported(f"min_periods={least} (pandas raises)")
+    _numeric(column, ctx)
+    return Accessor(column.code, column=column, kind="expanding", options=(("min_periods", least),))
+
+
+def _last_digits(column: Column, how: str, kind: str, options: dict[str, object],
+                 ctx: RuleContext) -> None:
+    """Lower the confidence where Polars computes a window value another way than pandas
+    (measured on random data, with and without missing values)."""
+    exact_numbers = column.dtype in ("int", "bool")
+    if how in ("std", "var"):
+        ctx.lower("pandas' running variance (values added and removed as the window moves) and "
+                  "Polars' can differ in the last digits", 0.95 if kind == "rolling" else 0.98)
+    elif how in ("sum", "mean") and kind == "rolling" and not exact_numbers:
+        ctx.lower("pandas' rolling sum is an online sum with a correction term; Polars' can "
+                  "differ from it in the last digits when windows hold missing values", 0.98)
+    elif how == "median" and not exact_numbers and (
+            options["window"] % 2 == 0 or options["min_periods"] != options["window"]):
+        ctx.lower("the median of an even number of values is the midpoint of the two middle "
+                  "ones, which the two libraries compute in ways that can differ in the last "
+                  "digit", 0.98)
+
+
+def _aggregate_code(values: Code, how: str, options: dict[str, object], kind: str,
+                    ddof: int = 1) -> Code:
+    args, kwargs = _window_args(options, kind)
+    if how == "count":
+        # pandas counts the values present; its min_periods counts the rows of the window
+        # (is_not_null is never missing, so min_samples counts rows too)
+        flags = values.method("is_not_null").method("cast", emit.atom("pl.Float64"))
+        return flags.method("rolling_sum", *args, **kwargs)
+    if how in ("std", "var") and ddof != 1:
+        kwargs["ddof"] = ddof
+    return values.method(f"rolling_{how}", *args, **kwargs)
+
+
+@rule(*(f"series.{kind}.{how}" for kind in ("rolling", "expanding") for how in WINDOW_AGGREGATES
+        if (kind, how) != ("expanding", "median")))
+def window_aggregate(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.rolling(n, ...).mean() / sum / min / max / median / std / var / count ->
+    rolling_mean(n, min_samples=..., center=...) ...; s.expanding(m).sum() -> the same over a
+    window as long as the column.
+
+    Handles: missing values are skipped and a window with fewer than min_periods values is
+    missing, as in pandas; count's min_periods counts rows (pandas); std/var ddof; integer
+    columns give floats as in pandas.
+    Caveats: std/var (and float sums, means and medians of a rolling window) can differ in the
+    last digits: lowered confidence. expanding().median() (a table TODO) and engine= are TODOs.
+    """
+    column, options = _window_of(call)
+    kind = call.receiver.kind  # type: ignore[union-attr]
+    how = call.name
+    ddof = 1
+    if how in ("std", "var"):
+        ctx.reject_unknown(call, "ddof", "numeric_only", positional=1)
+        ddof = call.const("ddof", 0, 1, kinds=(int,))
+    else:
+        ctx.reject_unknown(call, "numeric_only")
+    _last_digits(column, how, kind, options, ctx)
+    code = _aggregate_code(_numeric(column, ctx), how, options, kind, ddof)
+    return derived_column(column, code, dtype="float")
+
+
+# -- apply(func) over a window ------------------------------------------------------------------
+#
+# pandas calls `func` on each window holding at least min_periods values present (NaN
+# otherwise). A function whose body is one expression over the window becomes rolling
+# expressions: each way it reads the window (`w[-1]`, `np.nanmedian(w)`, `w.mean()`) is a
+# column expression, and the rest of the body (abs, arithmetic, numbers) is evaluated by the
+# ordinary rules with those expressions standing in.
+
+NUMPY_SKIPPING = {"nanmean": "mean", "nanmedian": "median", "nanmax": "max", "nanmin": "min",
+                  "nansum": "sum", "nanstd": "std", "nanvar": "var"}
+NUMPY_PLAIN = {"mean": "mean", "median": "median", "max": "max", "amax": "max", "min": "min",
+               "amin": "min", "sum": "sum", "std": "std", "var": "var"}
+# ndarray methods (raw=True): NaN makes them NaN; Series methods (raw=False) skip it
+ARRAY_METHODS = {"mean": "mean", "max": "max", "min": "min", "sum": "sum", "std": "std",
+                 "var": "var"}
+SERIES_METHODS = {**ARRAY_METHODS, "median": "median"}
+NUMPY_ABS = {"abs", "absolute", "fabs"}
+# operators through which a missing value stays missing (the window's gate carries over)
+NULL_KEEPING = (cst.Add, cst.Subtract, cst.Multiply, cst.Divide)
+
+
+class _WindowReads(cst.CSTTransformer):
+    """Replaces each read of the window parameter by a name bound to its column expression."""
+
+    def __init__(self, param: str, raw: bool, column: Column, values: Code, kind: str,
+                 options: dict[str, object], ctx: RuleContext) -> None:
+        super().__init__()
+        self.param, self.raw, self.column, self.values = param, raw, column, values
+        self.kind, self.options, self.ctx = kind, options, ctx
+        self.bindings: dict[str, Value] = {}
+        self.aggregates: set[str] = set()
+        # the window holds no missing value when pandas needs every row present
+        self.complete = kind == "rolling" and options["min_periods"] == options["window"]
+
+    def _is_param(self, node: cst.BaseExpression) -> bool:
+        return isinstance(node, cst.Name) and node.value == self.param
+
+    def _bind(self, code: Code, aggregate: bool) -> cst.Name:
+        name = f"_porter_window_{len(self.bindings)}"
+        self.bindings[name] = derived_column(self.column, code, dtype="float", name=None)
+        if aggregate:
+            self.aggregates.add(name)
+        return cst.Name(name)
+
+    def _aggregate(self, how: str, ddof: int) -> cst.Name:
+        _last_digits(self.column, how, self.kind, self.options, self.ctx)
+        if self.kind == "expanding" and how == "median":
+            raise Unsupported("a running median (no bounded Polars expression)")
+        return self._bind(_aggregate_code(self.values, how, self.options, self.kind, ddof), True)
+
+    def _ddof(self, node: cst.Call, default: int) -> int:
+        ddof = default
+        for arg in node.args:
+            if arg.keyword is None or arg.keyword.value != "ddof" or not isinstance(arg.value, cst.Integer):
+                raise Unsupported("an argument porter does not read in the window function")
+            ddof = int(arg.value.value)
+        return ddof
+
+    def leave_Subscript(self, original: cst.Subscript, updated: cst.Subscript) -> cst.BaseExpression:
+        base = updated.value
+        newest = (self.raw and self._is_param(base)) or (
+            not self.raw and isinstance(base, cst.Attribute) and self._is_param(base.value)
+            and base.attr.value == "iloc")
+        if not newest or len(updated.slice) != 1 or not isinstance(updated.slice[0].slice, cst.Index):
+            return updated
+        index = updated.slice[0].slice.value
+        if not (isinstance(index, cst.UnaryOperation) and isinstance(index.operator, cst.Minus)
+                and isinstance(index.expression, cst.Integer) and index.expression.value == "1"):
+            return updated  # another position: left for the check below
+        if self.options.get("center"):
+            raise Unsupported("the newest value of a centred window (a later row)")
+        return self._bind(self.values, False)
+
+    def leave_Call(self, original: cst.Call, updated: cst.Call) -> cst.BaseExpression:
+        func = updated.func
+        numpy = self.ctx.evaluate(original.func, {}) if isinstance(func, cst.Attribute) else None
+        qualname = getattr(numpy, "qualname", "")
+        if qualname.startswith("numpy."):
+            name = qualname.removeprefix("numpy.")
+            if name in NUMPY_ABS and len(updated.args) == 1 and updated.args[0].keyword is None:
+                return updated.with_changes(func=cst.Name("abs"))
+            positional = [a for a in updated.args if a.keyword is None]
+            if len(positional) != 1 or not self._is_param(positional[0].value):
+                return updated
+            extra = cst.Call(func=func, args=[a for a in updated.args if a.keyword is not None])
+            if name in NUMPY_SKIPPING:
+                return self._aggregate(NUMPY_SKIPPING[name], self._ddof(extra, 0))
+            if name in NUMPY_PLAIN and self.complete:
+                # the window holds no NaN: numpy's plain reduction is the skipping one
+                return self._aggregate(NUMPY_PLAIN[name], self._ddof(extra, 0))
+            return updated
+        if isinstance(func, cst.Attribute) and self._is_param(func.value):
+            methods = ARRAY_METHODS if self.raw else SERIES_METHODS
+            name = func.attr.value
+            if name in methods and (self.complete or not self.raw):
+                return self._aggregate(methods[name], self._ddof(updated, 0 if self.raw else 1))
+        return updated
+
+
+def _keeps_missing(node: cst.BaseExpression, names: set[str]) -> bool:
+    """Whether `node` is missing wherever one of `names` is: they are combined only by + - * /,
+    unary minus and abs()."""
+    if isinstance(node, cst.Name):
+        return node.value in names
+    if isinstance(node, cst.BinaryOperation) and isinstance(node.operator, NULL_KEEPING):
+        return _keeps_missing(node.left, names) or _keeps_missing(node.right, names)
+    if isinstance(node, cst.UnaryOperation) and isinstance(node.operator, (cst.Minus, cst.Plus)):
+        return _keeps_missing(node.expression, names)
+    if isinstance(node, cst.Call) and isinstance(node.func, cst.Name) and node.func.value == "abs" \
+            and len(node.args) == 1:
+        return _keeps_missing(node.args[0].value, names)
+    return False
+
+
+def _mentions(node: cst.CSTNode, name: str) -> bool:
+    found = False
+
+    class Finder(cst.CSTVisitor):
+        def visit_Name(self, n: cst.Name) -> None:
+            nonlocal found
+            found = found or n.value == name
+
+    node.visit(Finder())
+    return found
+
+
+@rule("series.rolling.apply", "series.expanding.apply")
+def window_apply(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.rolling(n, min_periods=m).apply(func, raw=...) -> rolling expressions, where func
+    returns one expression of the window: `w[-1]` (raw) / `w.iloc[-1]` is the column itself,
+    `np.nanmedian(w)` is rolling_median(n, min_samples=m), and so on.
+
+    Handles: pandas calls func only on windows with at least min_periods values present (NaN
+    otherwise): each rolling_* has that min_samples, and an expression that could be present
+    without them is put under pl.when(values present >= m); numpy's plain reductions and
+    ndarray methods (which give NaN for a window holding NaN) only where the window cannot hold
+    one (min_periods equal to the window); Series methods (raw=False) skip missing values.
+    Caveats: any other read of the window (another position, len, a loop, np.median of a
+    window that may hold NaN), args/kwargs, engine, and min_periods=0 are TODOs.
+    """
+    column, options = _window_of(call)
+    kind = call.receiver.kind  # type: ignore[union-attr]
+    ctx.reject_unknown(call, "func", "raw", positional=2)
+    raw = call.const("raw", 1, False, kinds=(bool,))
+    if options["min_periods"] == 0:
+        raise Unsupported("min_periods=0: pandas also calls the function on windows with no values")
+    function = call.arg("func", 0)
+    if isinstance(function, Opaque) and isinstance(function.node, cst.Lambda):
+        lambda_node = function.node
+        params = lambda_node.params.params
+        if len(params) != 1 or lambda_node.params.star_arg not in (None, cst.MaybeSentinel.DEFAULT):
+            raise Unsupported("a lambda with more than one parameter")
+        param, body = params[0].name.value, lambda_node.body
+    else:
+        named = function_value(call, function, ctx)
+        if named is None:
+            raise Unsupported("a function porter cannot read: write it as rolling expressions")
+        body = body_expression(named)
+        param = named.params.params[0].name.value
+    reads = _WindowReads(param, raw, column, _numeric(column, ctx), kind, options, ctx)
+    rewritten = body.visit(reads)
+    assert isinstance(rewritten, cst.BaseExpression)
+    if _mentions(rewritten, param):
+        raise Unsupported(
+            "the function reads the window in a way porter cannot write as rolling expressions "
+            "(only the newest value w[-1], np.nan* reductions, and plain reductions of a window "
+            "that cannot hold NaN)")
+    result = _checked(ctx.evaluate(rewritten, reads.bindings), ctx)
+    if isinstance(result, Opaque) and result.is_const and isinstance(result.const, (int, float)) \
+            and not isinstance(result.const, bool):
+        code = emit.pl("lit", float(result.const))
+    elif isinstance(result, Column) and result.frame.rows == column.frame.rows:
+        code = result.code.method("fill_null", False) if result.null_is_false else result.code
+    else:
+        raise Unsupported("the function's result has no expression form porter knows")
+    if not _keeps_missing(rewritten, reads.aggregates):
+        # the function is only called where enough values are present
+        present = column.code.method("is_not_null")
+        if kind == "expanding":
+            count = present.method("cum_sum")
+        else:
+            count = present.method("cast", emit.atom("pl.Int64")).method(
+                "rolling_sum", options["window"], min_samples=1,
+                **({"center": True} if options.get("center") else {}))
+        code = emit.when(emit.binop(count, ">=", options["min_periods"]), code)
+    return derived_column(column, code, dtype="float", others=[result] if isinstance(result, Column) else [])

@@ -258,7 +258,8 @@ class Evaluator:
             return self.dispatch("groupby.getitem", PandasCall(
                 receiver, "getitem", (Opaque(emit.lit(name), const=name),), node=node), node)
         if isinstance(receiver, Accessor):
-            names = pandas_names.STR if receiver.kind == "str" else pandas_names.DT
+            names = pandas_names.STR if receiver.kind == "str" else \
+                _WINDOW_METHODS if receiver.kind in handover.WINDOW_KINDS else pandas_names.DT
             if receiver.kind == "dt" and name in _DT_PROPERTIES:
                 return self.dispatch(f"series.dt.{name}", PandasCall(receiver, name, node=node), node)
             if name in names:
@@ -637,6 +638,10 @@ _SERIES_PROPERTIES = {"values", "shape", "dtype", "name", "index", "size", "empt
                       "is_unique", "hasnans", "array", "nbytes", "ndim", "dtypes", "plot",
                       "is_monotonic_increasing", "is_monotonic_decreasing", "at", "iat", "loc",
                       "iloc", "cat", "sparse", "list", "struct"}
+# methods of `s.rolling(n)` / `s.expanding()`: each is a key `series.rolling.<method>`
+_WINDOW_METHODS = {"mean", "sum", "min", "max", "median", "std", "var", "count", "apply",
+                   "quantile", "skew", "kurt", "sem", "agg", "aggregate", "corr", "cov", "rank",
+                   "first", "last", "nunique", "pipe"}
 _DT_PROPERTIES = {"year", "month", "day", "hour", "minute", "second", "microsecond",
                   "nanosecond", "weekday", "dayofweek", "day_of_week", "dayofyear",
                   "day_of_year", "quarter", "date", "time", "is_leap_year", "days_in_month",

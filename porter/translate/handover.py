@@ -17,6 +17,9 @@ from porter.translate.values import (
 )
 
 
+WINDOW_KINDS = ("rolling", "expanding")
+
+
 def _items(value: Items, convert: Callable[[Value], Code]) -> Code:
     inner = ", ".join(convert(v).text for v in value.items)
     if value.brackets == "()" and len(value.items) == 1:
@@ -91,6 +94,8 @@ def to_pandas(value: Value) -> Code:
             code = code.index(value.selection[0] if value.single else list(value.selection))
         return code
     if isinstance(value, Accessor):
+        if value.kind in WINDOW_KINDS:  # the window is made again, with the same arguments
+            return to_pandas(value.column).method(value.kind, **dict(value.options))
         return to_pandas(value.column).attr(value.kind)
     if isinstance(value, Indexer):
         return to_pandas(value.frame).attr(value.kind)

@@ -137,10 +137,13 @@ class Module(Value):
 
 @dataclass(frozen=True)
 class Accessor(Value):
-    """`series.str` / `series.dt`: waiting for its method."""
+    """`series.str` / `series.dt`, or a window (`series.rolling(3)`, `series.expanding()`):
+    waiting for its method. `options` are a window's arguments as the rule read them (keyword
+    names pandas takes), so a hand-over to pandas can make the same window."""
 
     column: Column = field(kw_only=True)
     kind: str = field(kw_only=True)
+    options: tuple[tuple[str, Any], ...] = field(default=(), kw_only=True)
 
 
 @dataclass(frozen=True)
