@@ -213,3 +213,54 @@ def test_site_confidence_for_an_unknown_column_variable() -> None:
     result = convert(FRAME + "def pick():\n    return 'kg'\ncol = pick()\nr = df[df[col] > 1]\n")
     site = next(s for s in result.sites if s.key == "frame.getitem.column")
     assert site.confidence <= 0.85
+
+
+# -- explode (I12) ----------------------------------------------------------------------------
+
+# text split into lists: several parts, an empty string ([""]), missing values (None and NaN),
+# an empty list (split() of ""), unicode, a trailing separator, a duplicate row
+EXPLODE = """\
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({
+    "job": ["J1", "J2", "J3", "J4", "J5", "J6", "J1"],
+    "parts": ["bolt;nut", "", None, "nut", "é;ß;", np.nan, "bolt;nut"],
+})
+df["p"] = df["parts"].str.split(";")
+df["q"] = df["parts"].str.split(";")
+df["w"] = df["parts"].str.replace(";", " ").str.split()
+"""
+
+
+def test_explode_ports() -> None:
+    check_ports(EXPLODE + 'r = df.explode("p")\n',
+                'df.explode("p", empty_as_null=True, keep_nulls=True)')
+
+
+@pytest.mark.parametrize("before, key", [
+    pytest.param('r = df.explode("job")', "frame.explode", id="a column of text"),
+    pytest.param('r = df.explode("p").reset_index()', "frame.reset_index",
+                 id="labels repeat after explode"),
+])
+def test_explode_todo(before: str, key: str) -> None:
+    check_todo(EXPLODE + before + "\n", key)
+
+
+@pytest.mark.parametrize("expr", [
+    pytest.param('df.explode("p")', id="parts, empty string, missing"),
+    pytest.param('df.explode("w")', id="empty lists give a missing row"),
+    pytest.param('df.explode(["p", "q"])', id="two columns"),
+    pytest.param('df.explode("p", ignore_index=True).reset_index()', id="ignore_index"),
+    pytest.param('df[df["job"] == "none"].explode("p")', id="empty frame"),
+    pytest.param('df.explode("p")["p"].str.strip().str.len()', id="text after explode"),
+])
+def test_explode_matches_pandas(expr: str) -> None:
+    # pandas is the reference implementation
+    result = differential(EXPLODE + f"result = {expr}\n")
+    assert "TODO(porter)" not in result.converted_text, result.converted_text
+
+
+def test_explode_of_a_column_of_unknown_type_says_so() -> None:
+    source = EXPLODE + 'df = df.set_index("job").reset_index()\nr = df.explode("p")\n'
+    site = next(s for s in convert(source).sites if s.key == "frame.explode")
+    assert site.confidence == 0.95 and "lists" in site.message

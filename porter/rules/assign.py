@@ -15,7 +15,8 @@ from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
     with_column_updates,
 )
-from porter.translate.values import Column, Frame, Opaque, PandasValue, Scalar, Value
+from porter.rules.strings import expanded_columns
+from porter.translate.values import Column, Frame, Opaque, PandasValue, Parts, Scalar, Value
 
 
 def named(code: Code, name: str) -> tuple[Code | None, dict[str, Code]]:
@@ -118,6 +119,11 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
     frame = call.receiver
     assert isinstance(frame, Frame)
     key, value = call.args
+    if isinstance(value, Parts) and isinstance(key, Opaque) and key.is_const:
+        # df[["a", "b"]] = s.str.extract(pat): each part is an expression of the frame's rows
+        names = column_names(key.const)
+        columns = expanded_columns(value, names, frame, ctx)
+        return with_columns(frame, [(n, *value_expr(c, frame, ctx)) for n, c in zip(names, columns)])
     if isinstance(key, Opaque) and isinstance(key.const, str):
         code, dtype = value_expr(value, frame, ctx)
         return with_columns(frame, [(key.const, code, dtype)])

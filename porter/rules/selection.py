@@ -10,7 +10,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import (
-    PandasCall, RuleContext, Unsupported, column_of, derive, select_columns,
+    PandasCall, RuleContext, Unsupported, column_names, column_of, derive, select_columns,
 )
 from porter.translate.values import Column, Frame, Opaque, Scalar, Value
 
@@ -365,3 +365,38 @@ def _may_hold_none(node: cst.BaseExpression) -> bool:
     if isinstance(node, (cst.List, cst.Tuple)):
         return any(isinstance(e.value, cst.Name) and e.value.value == "None" for e in node.elements)
     return True
+
+
+@rule("frame.explode")
+def explode(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.explode(c) -> .explode(c, empty_as_null=True, keep_nulls=True) (I12).
+
+    Handles: an empty list and a missing value each give one row with a missing value, as in
+    pandas (Polars drops empty lists unless empty_as_null=True); several columns (both raise
+    when a row's lists differ in length); ignore_index=True renumbers the labels 0..n-1.
+    Caveats: pandas repeats a row's label for each element; a column not known to hold lists
+    lowers confidence (pandas keeps a text value as is, Polars refuses a text column).
+    """
+    frame = frame_of(call)
+    ctx.reject_unknown(call, "column", "ignore_index", positional=2)
+    names = column_names(call.const("column", 0), "explode's columns")
+    ignore_index = call.const("ignore_index", 1, False, kinds=(bool,))
+    if frame.index:
+        raise Unsupported("a frame with an index porter keeps as columns")
+    dtypes = dict(frame.dtypes)
+    for name in names:
+        if frame.columns is not None and name not in frame.columns:
+            raise Unsupported(f"column {name!r} is not in the frame (pandas raises KeyError)")
+        kind = dtypes.get(name)
+        if kind is None:
+            ctx.lower(f"column {name!r} is taken to hold lists (pandas keeps other values as "
+                      "they are; Polars refuses a column of text)", 0.95)
+        elif not kind.startswith("list["):
+            raise Unsupported(f"column {name!r} holds {kind} values, not lists: pandas keeps "
+                              "them as they are")
+        else:
+            dtypes[name] = kind[len("list["):-1]
+    code = frame.code.method("explode", emit.names_arg(names), empty_as_null=True,
+                             keep_nulls=True)
+    return derive(frame, code, same_rows=False, labels_intact=bool(ignore_index),
+                  dtypes=tuple(dtypes.items()))

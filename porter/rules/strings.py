@@ -20,12 +20,26 @@ import polars as pl
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
+import libcst as cst
+
+from porter.translate import handover
 from porter.translate.context import (
-    PandasCall, RuleContext, Unsupported, accessor_column, derived_column,
+    PandasCall, RuleContext, Unsupported, accessor_column, check_same_rows, derived_column,
 )
-from porter.translate.values import Column, Opaque, Value
+from porter.translate.values import Column, Frame, Opaque, Parts, Value
 
 INT64 = emit.atom("pl.Int64")
+LIST_STR = "list[str]"  # porter's dtype of a column of lists of text (str.split, str.findall)
+
+
+def text_column(call: PandasCall, ctx: RuleContext) -> Column:
+    """The column under `s.str` for a method of text: on a column of lists (str.split) pandas
+    gives a missing value for every row, and the Polars string method fails."""
+    column = accessor_column(call)
+    if column.dtype == LIST_STR:
+        raise ctx.todo(f"str.{call.name} of a column of lists: pandas gives a missing value for "
+                       "every row")
+    return column
 
 
 def _text(column: Column) -> Code:
@@ -202,7 +216,7 @@ def case(call: PandasCall, ctx: RuleContext) -> Value:
     ("ﬀ") are kept by pandas and expanded by Polars, a final sigma is "σ" in pandas and "ς" in
     Polars (confidence below 1 in the table).
     """
-    column = accessor_column(call)
+    column = text_column(call, ctx)
     ctx.reject_unknown(call)
     return _string(column, _text(column).method(_CASE[call.name]))
 
@@ -217,7 +231,7 @@ def strip(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: a set of characters to strip (both read it as a set, not a prefix).
     Caveats: without chars, Python also strips \\x1c-\\x1f (0.99).
     """
-    column = accessor_column(call)
+    column = text_column(call, ctx)
     ctx.reject_unknown(call, "to_strip", positional=1)
     chars = call.const("to_strip", 0, None)
     if chars is None:
@@ -232,13 +246,16 @@ def strip(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("series.str.len")
 def str_len(call: PandasCall, ctx: RuleContext) -> Value:
-    """s.str.len() -> str.len_chars().cast(pl.Int64).
+    """s.str.len() -> str.len_chars().cast(pl.Int64); on a column of lists list.len().
 
-    Handles: characters, not UTF-8 bytes ("Éclair" is 6); Int64 so arithmetic cannot wrap.
+    Handles: characters, not UTF-8 bytes ("Éclair" is 6); Int64 so arithmetic cannot wrap; the
+    number of parts of a list (str.split(...).str.len()).
     Caveats: pandas gives float64 when a value is missing, Polars Int64 with nulls.
     """
     column = accessor_column(call)
     ctx.reject_unknown(call)
+    if column.dtype == LIST_STR:
+        return _result(column, column.code.attr("list").method("len").method("cast", INT64), "int")
     return _result(column, _text(column).method("len_chars").method("cast", INT64), "int")
 
 
@@ -248,7 +265,7 @@ def zfill(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: a leading sign stays in front in both ("-0042").
     """
-    column = accessor_column(call)
+    column = text_column(call, ctx)
     ctx.reject_unknown(call, "width", positional=1)
     width = call.const("width", 0)
     if not isinstance(width, int):
@@ -266,7 +283,7 @@ def pad(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: side="both" and center() put the odd extra character where Python does
     (left when the width is odd), T10.
     """
-    column = accessor_column(call)
+    column = text_column(call, ctx)
     if call.name == "pad":
         ctx.reject_unknown(call, "width", "side", "fillchar", positional=3)
         side = call.const("side", 1, "left")
@@ -332,7 +349,7 @@ def slice_(call: PandasCall, ctx: RuleContext) -> Value:
     strings shorter than the slice.
     Caveats: a step, and a negative start with a non-negative stop, are TODOs.
     """
-    column = accessor_column(call)
+    column = text_column(call, ctx)
     ctx.reject_unknown(call, "start", "stop", "step", positional=3)
     start, stop, step = (call.const(n, i, None) for i, n in enumerate(("start", "stop", "step")))
     _check_slice(start, stop, step, ctx)
@@ -351,12 +368,36 @@ def getitem(call: PandasCall, ctx: RuleContext) -> Value:
     if call.name == "get":
         ctx.reject_unknown(call, "i", positional=1)
     key = call.const("i", 0)
+    if column.dtype == LIST_STR:
+        return list_item(column, key, ctx)
     if isinstance(key, slice):
         _check_slice(key.start, key.stop, key.step, ctx)
         return _string(column, slice_code(_text(column), key.start, key.stop, ctx))
     if isinstance(key, int) and not isinstance(key, bool):
         return char_at(column, key)
     raise ctx.todo("an index that is not an integer or a slice")
+
+
+def list_item(column: Column, key: object, ctx: RuleContext) -> Column:
+    """s.str[i] / s.str.get(i) / s.str[a:b] on a column of lists (str.split): one part, missing
+    where the list is too short (pandas' NaN), or a shorter list."""
+    items = column.code.attr("list")
+    if isinstance(key, int) and not isinstance(key, bool):
+        return _string(column, items.method("get", key, null_on_oob=True))
+    if not isinstance(key, slice):
+        raise ctx.todo("an index that is not an integer or a slice")
+    _check_slice(key.start, key.stop, key.step, ctx)
+    start, stop = key.start or 0, key.stop
+    if start >= 0 and stop is None:
+        code = items.method("slice", start) if start else column.code
+    elif start >= 0 and stop is not None and stop >= 0:
+        code = items.method("head", stop) if start == 0 else \
+            items.method("slice", start, max(stop - start, 0))
+    elif start < 0 and stop is None:
+        code = items.method("tail", -start)
+    else:  # list.head / slice read a negative bound otherwise than Python
+        raise ctx.todo(f"a slice of lists with a bound from the end ([{key.start}:{key.stop}])")
+    return _result(column, code, LIST_STR)
 
 
 # -- tests that give booleans (T01, T08, M11) -------------------------------------------------
@@ -389,7 +430,7 @@ def contains(call: PandasCall, ctx: RuleContext) -> Value:
     Caveats: lookarounds, backreferences, \\< \\>, nested sets and a $ that is not the last
     character are TODOs; \\s lowers confidence (0.98).
     """
-    column = accessor_column(call)
+    column = text_column(call, ctx)
     ctx.reject_unknown(call, "pat", "case", "flags", "na", "regex", positional=5)
     pat = call.const("pat", 0)
     if not isinstance(pat, str):
@@ -411,7 +452,7 @@ def match(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: case, flags and na as for contains.
     """
-    column = accessor_column(call)
+    column = text_column(call, ctx)
     ctx.reject_unknown(call, "pat", "case", "flags", "na", positional=4)
     pat = call.const("pat", 0)
     if not isinstance(pat, str):
@@ -432,7 +473,7 @@ def prefix(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: a tuple of prefixes (pl.any_horizontal over them); missing is False or `na`.
     """
-    column = accessor_column(call)
+    column = text_column(call, ctx)
     ctx.reject_unknown(call, "pat", "na", positional=2)
     pat = call.const("pat", 0)
     pats = pat if isinstance(pat, tuple) else (pat,)
@@ -455,7 +496,7 @@ def replace(call: PandasCall, ctx: RuleContext) -> Value:
     Caveats: a callable repl, a compiled pattern, Python-only regex features and a regex
     replacement with n=0 or n > 1 are TODOs.
     """
-    column = accessor_column(call)
+    column = text_column(call, ctx)
     ctx.reject_unknown(call, "pat", "repl", "n", "case", "flags", "regex", positional=6)
     pat, repl = call.const("pat", 0), call.const("repl", 1)
     if not isinstance(pat, str) or not isinstance(repl, str):
@@ -481,3 +522,258 @@ def replace(call: PandasCall, ctx: RuleContext) -> Value:
     if n != 1:
         options["n"] = n
     return _string(column, text.method("replace", *args, **options))
+
+
+# -- capitalize, count, findall (T06, T12) ------------------------------------------------------
+
+@rule("series.str.capitalize")
+def capitalize(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str.capitalize() -> str.head(1).str.to_uppercase() + str.slice(1).str.to_lowercase().
+
+    Handles: the first character upper case and the rest lower case, as pandas' kernel does
+    ('ǆ' becomes 'Ǆ', not the title-case 'ǅ' of Python's str.capitalize).
+    Caveats: letters whose case changes their length differ as for upper() and lower() ('ß'
+    first is 'ẞ' in pandas and 'SS' in Polars, ligatures, 'ŉ', a final sigma): 0.98.
+    """
+    column = text_column(call, ctx)
+    ctx.reject_unknown(call)
+    text = _text(column)
+    first = text.method("head", 1).attr("str").method("to_uppercase")
+    rest = text.method("slice", 1).attr("str").method("to_lowercase")
+    return _string(column, emit.binop(first, "+", rest))
+
+
+def _pattern(call: PandasCall, ctx: RuleContext, flags_position: int, *, test: bool) -> tuple[str, re.Pattern[str]]:
+    """The pattern argument (position 0) and `flags=` as one Polars pattern, and the pattern as
+    Python compiles it."""
+    pat = call.const("pat", 0)
+    if not isinstance(pat, str):
+        raise ctx.todo("a pattern that is not text (a compiled regex?)")
+    flags = regex_flags(call, flags_position)
+    source = polars_regex(pat, flags, ctx, test=test)
+    return inline_flags(flags) + source, re.compile(pat, flags)
+
+
+def _may_match_empty(compiled: re.Pattern[str]) -> bool:
+    return _P.parse(compiled.pattern, compiled.flags).getwidth()[0] == 0
+
+
+@rule("series.str.count")
+def count(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str.count(pat, flags) -> str.count_matches(pat).cast(pl.Int64).
+
+    Handles: non-overlapping matches counted as re.findall finds them; flags as inline flags;
+    a missing value stays missing.
+    Caveats: a pattern that can match the empty string is a TODO (pandas counts empty matches
+    at every byte with pyarrow, Python and Polars each otherwise); pandas gives float64 when a
+    value is missing, Polars Int64 with nulls.
+    """
+    column = text_column(call, ctx)
+    ctx.reject_unknown(call, "pat", "flags", positional=2)
+    pattern, compiled = _pattern(call, ctx, 1, test=False)
+    if _may_match_empty(compiled):
+        raise ctx.todo(f"the pattern {compiled.pattern!r} can match the empty string: each "
+                       "engine counts empty matches its own way")
+    code = _text(column).method("count_matches", pattern).method("cast", INT64)
+    return _result(column, code, "int")
+
+
+@rule("series.str.findall")
+def findall(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str.findall(pat, flags) -> str.extract_all(pat), a list per row.
+
+    Handles: every non-overlapping match in order, as re.findall; an empty list where nothing
+    matches; a missing value stays missing.
+    Caveats: a pattern with groups (re.findall then gives the groups, Polars the whole match)
+    and a pattern that can match the empty string (Polars skips an empty match right after a
+    match) are TODOs.
+    """
+    column = text_column(call, ctx)
+    ctx.reject_unknown(call, "pat", "flags", positional=2)
+    pattern, compiled = _pattern(call, ctx, 1, test=False)
+    if compiled.groups:
+        raise ctx.todo("a pattern with groups: re.findall gives the groups, str.extract_all "
+                       "the whole match (make the groups non-capturing: (?:...))")
+    if _may_match_empty(compiled):
+        raise ctx.todo(f"the pattern {compiled.pattern!r} can match the empty string: Polars "
+                       "skips an empty match right after a match, Python does not")
+    return _result(column, _text(column).method("extract_all", pattern), LIST_STR)
+
+
+# -- split and extract: lists and frames of parts (T04, T05) ------------------------------------
+
+def _again_in_pandas(call: PandasCall, column: Column) -> Code:
+    """The call made by pandas on the pandas Series (for code that needs pandas' DataFrame)."""
+    node = call.node
+    assert isinstance(node, cst.Call)
+    empty = cst.Module(body=[])
+    args = ", ".join(empty.code_for_node(a.with_changes(comma=cst.MaybeSentinel.DEFAULT))
+                     for a in node.args)
+    receiver = handover.to_pandas(column).wrapped(emit.ATOM)
+    return emit.atom(f"{receiver}.str.{call.name}({args})")
+
+
+def _separator(call: PandasCall, ctx: RuleContext) -> str | None:
+    """The text split on (None: runs of whitespace), as a literal."""
+    pat = call.const("pat", 0, None)
+    if pat is None:
+        return None
+    if not isinstance(pat, str) or not pat:
+        raise ctx.todo("a separator that is not text (a compiled regex?) or is empty")
+    regex = call.const("regex", None, None) if call.name == "split" else False
+    if regex is False or regex is None and len(pat) == 1:
+        return pat
+    # pandas reads a longer pattern (or regex=True) as a regex; one of plain characters is
+    # the same separator as text
+    try:
+        tree = _P.parse(pat)
+    except re.error:
+        raise ctx.todo(f"{pat!r} is read as a regex by pandas, and is not a valid one") from None
+    if all(op is _C.LITERAL for op, _ in tree):
+        return "".join(chr(av) for _, av in tree)  # type: ignore[arg-type]
+    raise ctx.todo(f"the separator {pat!r} is a regex in pandas (re.split keeps groups and "
+                   "splits on empty matches): split on a literal text or write regex=False")
+
+
+def _limit(call: PandasCall, ctx: RuleContext) -> int | None:
+    """n= as a number of splits (None: every one)."""
+    n = call.const("n", None, -1)
+    if n is None or n in (0, -1) and not isinstance(n, bool):
+        return None
+    if not isinstance(n, int) or isinstance(n, bool) or n < 0:
+        raise ctx.todo(f"n={n!r}")
+    return n
+
+
+@rule("series.str.split", "series.str.rsplit")
+def split(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str.split(sep) -> str.split(sep), a list per row; rsplit(sep, n=k) from the right;
+    expand=True -> a frame of parts whose columns are parts.list.get(i, null_on_oob=True).
+
+    Handles: a one-character separator, or a longer one without regex metacharacters (pandas'
+    regex reads it as the same text); no separator splits on runs of whitespace as Python's
+    str.split() (str.extract_all(r"\\S+"): none for an empty or blank string); n=k keeps the
+    rest in the last (first, for rsplit) part; a missing value stays missing; a subscript of
+    the expanded frame is missing where a row has fewer parts, as in pandas.
+    Caveats: a regex separator, whitespace with n, and reading the expanded frame as a whole
+    (its width is the parts of the longest row) are TODOs; \\x1c-\\x1f separate words in Python
+    and not in Polars (0.98).
+    """
+    column = text_column(call, ctx)
+    known = ("pat", "n", "expand", "regex") if call.name == "split" else ("pat", "n", "expand")
+    ctx.reject_unknown(call, *known, positional=1)
+    sep = _separator(call, ctx)
+    n = _limit(call, ctx)
+    expand = call.const("expand", None, False, kinds=(bool,))
+    text = _text(column)
+    if sep is None:
+        if n is not None:
+            raise ctx.todo("splitting on whitespace with n: Python keeps the rest with its own "
+                           "spacing")
+        ctx.lower("whitespace: Python also splits on \\x1c-\\x1f, Polars does not", 0.98)
+        parts = text.method("extract_all", r"\S+")
+    else:
+        parts = text.method("split", sep)
+        if n is not None:
+            items = parts.attr("list")
+            if call.name == "split":
+                if expand:  # at most n + 1 parts, each a field of a struct
+                    whole = text.method("splitn", sep, n + 1)
+                    fields = tuple((i, f"field_{i}") for i in range(n + 1))
+                    singles = tuple((i, whole.attr("struct").method("field", f"field_{i}"))
+                                    for i in range(n + 1))
+                    return Parts(whole, source=column, fields=fields, singles=singles,
+                                 pandas=_again_in_pandas(call, column))
+                joined = emit.pl("concat_list", items.method("head", n),
+                                 items.method("slice", n).attr("list").method("join", sep))
+            else:
+                rest = emit.binop(items.method("len"), "-", n)
+                joined = emit.pl("concat_list", items.method("head", rest).attr("list")
+                                 .method("join", sep), items.method("tail", n))
+            longer = emit.binop(items.method("len"), ">", n + 1)
+            parts = emit.when(longer, joined, parts)
+    if expand:
+        return Parts(parts, source=column, pandas=_again_in_pandas(call, column))
+    return _result(column, parts, LIST_STR)
+
+
+@rule("series.str.extract")
+def extract(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str.extract(pat) -> str.extract_groups(pat) (its fields parts.struct.field("1"), or
+    str.extract(pat, 1) for one column); expand=False with one group -> str.extract(pat, 1).
+
+    Handles: pandas' labels 0, 1, … for unnamed groups and the name of a named one (Polars
+    names fields "1", "2", … and by name); no match, a missing value and a group that took no
+    part are missing in both; an empty match is ""; flags as inline flags; a final $ matches
+    before a final newline, as in Python.
+    Caveats: Python-only regex features (lookaround, backreferences…) are TODOs; \\s lowers
+    confidence (0.98).
+    """
+    column = text_column(call, ctx)
+    ctx.reject_unknown(call, "pat", "flags", "expand", positional=3)
+    expand = call.const("expand", 2, True, kinds=(bool,))
+    # only the groups are read, and a final $ lies outside every group
+    pattern, compiled = _pattern(call, ctx, 1, test=True)
+    if not compiled.groups:
+        raise ctx.todo("a pattern without groups (pandas raises)")
+    text = _text(column)
+    if not expand and compiled.groups == 1:
+        return _string(column, text.method("extract", pattern, 1))
+    names = {index: name for name, index in compiled.groupindex.items()}
+    labels = [names.get(k, k - 1) for k in range(1, compiled.groups + 1)]
+    fields = tuple((label, names.get(k, str(k))) for k, label in enumerate(labels, 1))
+    singles = tuple((label, text.method("extract", pattern, k)) for k, label in enumerate(labels, 1))
+    return Parts(text.method("extract_groups", pattern), source=column, fields=fields,
+                 singles=singles, width_known=True, pandas=_again_in_pandas(call, column))
+
+
+def part(parts: Parts, label: object, ctx: RuleContext) -> Column:
+    """One column of a frame of parts, as an expression of its source's frame."""
+    column = parts.source
+    if parts.fields:
+        found = dict(parts.fields)
+        if label not in found or isinstance(label, bool):
+            raise ctx.todo(f"{label!r} is not a column of this frame (pandas raises KeyError)")
+        if parts.bound:
+            code = parts.code.attr("struct").method("field", found[label])
+        else:
+            code = dict(parts.singles)[label]
+    elif isinstance(label, int) and not isinstance(label, bool) and label >= 0:
+        code = parts.code.attr("list").method("get", label, null_on_oob=True)
+    else:
+        raise ctx.todo(f"{label!r}: the columns of str.split(expand=True) are 0, 1, …")
+    return derived_column(column, code, dtype="str", name=str(label))
+
+
+@rule("series.str.expand.getitem")
+def expand_getitem(call: PandasCall, ctx: RuleContext) -> Value:
+    """parts[i] / parts["name"] / parts.name of str.extract or str.split(expand=True) -> the
+    part as an expression of the source column's frame (struct.field or list.get).
+
+    Handles: a row with fewer parts is missing, as pandas fills it; the column keeps the
+    rows of the frame the text came from, so it can be assigned back to it.
+    Caveats: a part number past pandas' width raises KeyError in pandas and is missing here;
+    a list of labels, or the frame as a whole, stays pandas.
+    """
+    parts = call.receiver
+    assert isinstance(parts, Parts)
+    key = call.args[0]
+    if not (isinstance(key, Opaque) and key.is_const):
+        raise ctx.todo("a label computed at run time")
+    return part(parts, key.const, ctx)
+
+
+def expanded_columns(parts: Parts, names: list[str], frame: Frame, ctx: RuleContext) -> list[Column]:
+    """df[["a", "b"]] = parts: the parts in order, one per name, rows checked against `frame`.
+    pandas raises unless the widths agree, so where it runs the columns are these."""
+    check_same_rows(parts.source, frame)
+    if parts.width_known and len(parts.fields) != len(names) \
+            or parts.fields and len(names) > len(parts.fields):
+        raise ctx.todo(f"{len(names)} names for {len(parts.fields)} columns (pandas raises)")
+    if parts.width_known:
+        labels = [label for label, _ in parts.fields]
+    else:
+        ctx.lower("pandas' width is the parts of the longest row: it raises where that is not "
+                  f"{len(names)}, and Polars would take the first {len(names)}", 0.98)
+        labels = list(range(len(names)))
+    return [part(parts, label, ctx) for label in labels]

@@ -26,7 +26,7 @@ from porter.translate.rewrite import BINARY_OPS, ChildRewriter, precedence
 from porter.translate.context import PandasCall, RuleContext, Unsupported, derived_column
 from porter.translate.values import (
     MISSING, Accessor, BoundMethod, Column, Frame, Grouped, Indexer, Items, Module, Opaque,
-    PandasValue, Scalar, Value, is_pandas,
+    PandasValue, Parts, Scalar, Value, is_pandas,
 )
 
 COMPARE_OPS = {
@@ -54,16 +54,6 @@ class LocalFunction:
     # parameters the body changes in place (`frame["c"] = ...`): the caller's object changes,
     # so the argument is handed to pandas in its own name and the body stays pandas for it
     mutated_params: frozenset[str] = frozenset()
-    # parameters every call passes a column of one frame, in a body that only computes one
-    # column from them: the function takes Polars expressions there and returns one
-    # (`def tidy(s): return s.str.strip_chars()`, called as `tidy(pl.col("name"))`)
-    column_params: frozenset[str] = frozenset()
-    column_dtypes: tuple[tuple[str, str], ...] = ()  # what the calls pass, when they agree
-    column_rows: int | None = None  # the rows the body's expressions stand for
-    not_expression: bool = False  # tried, and the body is more than one column's expression
-    # the frame parameter whose column the function returns unchanged in rows (`return
-    # df["kg"] * 2`): it returns that expression, evaluated in the caller's frame
-    returns_column_of: str | None = None
 
 
 @dataclass
@@ -142,12 +132,24 @@ class Evaluator:
     # -- names, literals ----------------------------------------------------------------------
     def _eval_Name(self, node: cst.Name) -> Value:
         if node.value in self.env:
-            return self.env[node.value]
+            value = self.env[node.value]
+            if isinstance(value, Parts) and value.binding is not None:
+                self.note_stale_parts(value)
+            return value
         if node.value in ("True", "False", "None"):
             return self.opaque(node, {"True": True, "False": False, "None": None}[node.value])
         if node.value in _TYPE_NAMES:
             return self.opaque(node, _TYPE_NAMES[node.value])
         return self.opaque(node)
+
+    def note_stale_parts(self, parts: Parts) -> None:
+        """str.extract's frame kept in a name, read where its frame's name holds other rows or
+        its text column was overwritten: the next pass has pandas compute it where it is bound."""
+        source = parts.source
+        frame = self.env.get(source.frame.code.text)
+        if not (isinstance(frame, Frame) and frame.rows == source.frame.rows
+                and all(frame.version(c) == v for c, v in source.versions)):
+            self.services.stale_series.add(parts.binding)  # type: ignore[arg-type]
 
     def _eval_SimpleString(self, node: cst.SimpleString) -> Value:
         return self.opaque(node, node.evaluated_value)
@@ -279,6 +281,11 @@ class Evaluator:
                              node, "porter has no rule for this attribute")
         if isinstance(receiver, Scalar) and receiver.pytype == "list[str]":
             return self.column_names_attribute(receiver, name, node)
+        if isinstance(receiver, Parts) and name not in pandas_names.FRAME \
+                and any(label == name for label, _ in receiver.fields):
+            # parts.name: a named group's column (anything else is pandas' DataFrame API)
+            call = PandasCall(receiver, "getitem", (Opaque(emit.lit(name), const=name),), node=node)
+            return self.dispatch("series.str.expand.getitem", call, node)
         return self.generic(node)
 
     def column_names_attribute(self, names: Scalar, attr: str, node: cst.Attribute) -> Value:
@@ -388,7 +395,6 @@ class Evaluator:
             tuple(positional) + tuple(keywords.values()))
         parts: list[str] = []
         sites: list[SiteDraft] = []
-        bound: dict[str, Value] = {}
         position = 0
         for arg in node.args:
             # each argument is written from its own value (a keyword never stands in for a
@@ -400,10 +406,7 @@ class Evaluator:
                 value = positional[position]
                 position += 1
             sites += value.sites
-            bound[param] = value
             if isinstance(value, Frame) and param in function.frame_params:
-                text = value.code.text
-            elif isinstance(value, Column) and param in function.column_params:
                 text = value.code.text
             elif is_pandas(value):
                 text = self.handed_to_unknown(value, node).code.text
@@ -414,21 +417,6 @@ class Evaluator:
         code = Code(f"{self.source(node.func)}({', '.join(parts)})")
         if isinstance(function.returns, Frame):
             return replace(function.returns, code=code, sites=tuple(sites))
-        returned = function.returns
-        if isinstance(returned, Column) and (function.column_params or function.returns_column_of):
-            # the function returns an expression: of the columns passed, or of the frame passed
-            columns = [v for p, v in bound.items() if p in function.column_params]
-            frame = bound.get(function.returns_column_of or "")
-            if columns and all(isinstance(c, Column) for c in columns):
-                frame = columns[0].frame  # type: ignore[union-attr]
-            if isinstance(frame, Frame):
-                refs = frozenset().union(*(c.refs for c in columns)) if columns else returned.refs  # type: ignore[union-attr]
-                name = returned.name
-                if name is None and len(columns) == 1:
-                    name = columns[0].name  # type: ignore[union-attr]
-                return Column(code, frame=frame, name=name, dtype=returned.dtype, refs=refs,
-                              versions=tuple((c, frame.version(c)) for c in sorted(refs)),
-                              null_is_false=returned.null_is_false, sites=tuple(sites))
         if isinstance(function.returns, Column | Scalar):
             return PandasValue(code, sites=tuple(sites))
         return Opaque(code, sites=tuple(sites))
@@ -453,7 +441,7 @@ class Evaluator:
             if isinstance(key, Column) and key.element:
                 call = PandasCall(key, "lookup", (receiver,), node=node)
                 return self.dispatch("element.lookup", call, node)
-        if not isinstance(receiver, (Frame, Column, Grouped, Indexer, Accessor)):
+        if not isinstance(receiver, (Frame, Column, Grouped, Indexer, Accessor, Parts)):
             return self.generic(node)
         keys: list[Value] = []
         for element in node.slice:
@@ -754,6 +742,8 @@ def _module_key(qualname: str) -> str:
 def _getitem_key(receiver: Value, key: Value) -> str:
     if isinstance(receiver, Grouped):
         return "groupby.getitem"
+    if isinstance(receiver, Parts):
+        return "series.str.expand.getitem"
     if isinstance(receiver, Accessor):
         return f"series.{receiver.kind}.getitem"
     if isinstance(receiver, Column):

@@ -13,7 +13,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.translate.context import PandasCall
 from porter.translate.values import (
-    Accessor, BoundMethod, Column, Frame, Grouped, Indexer, Items, Opaque, Value, is_pandas,
+    Accessor, BoundMethod, Column, Frame, Grouped, Indexer, Items, Opaque, Parts, Value, is_pandas,
 )
 
 
@@ -101,6 +101,8 @@ def to_pandas(value: Value) -> Code:
         return to_pandas(value.frame).attr(value.kind)
     if isinstance(value, Items):
         return _items(value, to_pandas)
+    if isinstance(value, Parts):  # str.extract / split(expand=True): pandas computes it again
+        return value.pandas
     if isinstance(value, BoundMethod) and is_pandas(value.receiver):
         return to_pandas(value.receiver).attr(value.name)  # a method or property not called here
     return value.code
@@ -110,7 +112,7 @@ def for_display(value: Value) -> Code:
     """What `print(value)` should print: the collected Polars object."""
     if isinstance(value, (Frame, Column)):
         return collected(value)
-    if isinstance(value, (Grouped, Accessor, Indexer)):
+    if isinstance(value, (Grouped, Accessor, Indexer, Parts)):
         return to_pandas(value)
     if isinstance(value, Items):
         return _items(value, for_display)
@@ -126,11 +128,7 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
         if value is None:
             return False
         if isinstance(value, Opaque):
-            if value.node is None:
-                # code porter wrote (a call of the script's own function given columns
-                # handed over): its source would subscript LazyFrames
-                return any(s.status != "converted" for s in value.sites)
-            return value.code.text != source(value.node)
+            return value.node is not None and value.code.text != source(value.node)
         return True
 
     inputs = [call.receiver, *call.args, *call.kwargs.values()]

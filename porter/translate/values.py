@@ -155,6 +155,29 @@ class Indexer(Value):
 
 
 @dataclass(frozen=True)
+class Parts(Value):
+    """The DataFrame pandas makes of one column's text (`s.str.extract(pat)`,
+    `s.str.split(sep, expand=True)`): each of its columns is an expression over the rows of
+    `source`'s frame, so a subscript (`parts[0]`, `parts["name"]`) is a Column of that frame.
+
+    `code` is the whole result as one Polars expression (a struct or a list per row); `fields`
+    maps pandas' labels to a struct field of it (empty for a list: label i is list element i);
+    `singles` the code of each label when `code` is not kept in a name (`str.extract(pat, 1)`);
+    `width_known`: pandas' number of columns is len(fields) whatever the data (extract), not
+    the parts of the longest row (split); `pandas` recomputes the DataFrame for code that needs
+    the pandas object; `bound`: `code` is a name holding the expression.
+    """
+
+    source: "Column" = field(kw_only=True)
+    fields: tuple[tuple[Any, str], ...] = field(default=(), kw_only=True)
+    singles: tuple[tuple[Any, Code], ...] = field(default=(), kw_only=True)
+    width_known: bool = field(default=False, kw_only=True)
+    pandas: Code = field(kw_only=True)
+    bound: bool = field(default=False, kw_only=True)
+    binding: int | None = field(default=None, kw_only=True)  # the assignment that named it
+
+
+@dataclass(frozen=True)
 class Opaque(Value):
     """Anything porter does not model; `const` holds its value when it is a literal."""
 
@@ -185,7 +208,7 @@ class BoundMethod(Value):
     name: str = field(kw_only=True)
 
 
-PANDAS_KINDS = (Frame, Column, Grouped, Accessor, Indexer, Items, BoundMethod)
+PANDAS_KINDS = (Frame, Column, Grouped, Accessor, Indexer, Items, BoundMethod, Parts)
 
 
 def is_pandas(value: Value) -> bool:
