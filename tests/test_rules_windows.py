@@ -174,12 +174,14 @@ ONE_ROW = '''
 import numpy as np
 import pandas as pd
 df = pd.DataFrame({"v": [np.nan], "n": [3]})
+df["flag"] = df["v"] > 1
 '''
 NO_ROWS = '''
 import numpy as np
 import pandas as pd
 df = pd.DataFrame({"v": [1.0], "n": [1]})
 df = df[df["n"] > 5]
+df["flag"] = df["v"] > 1
 '''
 
 ROLLING = [
@@ -286,6 +288,11 @@ def spread(w):
     'df["v"].rolling(3, min_periods=2, center=True).apply(lambda w: np.abs(np.nanmean(w) - 1), raw=True)',
     'df["v"].rolling(3, min_periods=2).apply(lambda w: w[-1] / np.nansum(w), raw=True)',
     'df["n"].expanding(2).apply(lambda w: np.nansum(w) + 1, raw=True)',
+    'df["v"].rolling(3, min_periods=2).apply(lambda w: w[-1] > np.nanmean(w), raw=True)',
+    'df["v"].rolling(3, min_periods=2).apply(lambda w: w[-1] if w[-1] > 2 else 0.0, raw=True)',
+    'df["flag"].rolling(2, min_periods=1).apply(lambda w: w[-1] + 1, raw=True)',
+    'df["v"].rolling(3, min_periods=1).apply(lambda w: np.nan, raw=True)',
+    'df["v"].rolling(3, min_periods=1).apply(lambda w: (w[-1] - np.nanmin(w)) ** 2, raw=True)',
     'df["v"].expanding().apply(lambda w: w[-1] - np.nanmax(w), raw=True)',
 ])
 def test_window_functions_match_pandas(frame: str, expr: str) -> None:

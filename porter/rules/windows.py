@@ -497,7 +497,8 @@ def window_apply(call: PandasCall, ctx: RuleContext) -> Value:
             raise Unsupported("a function porter cannot read: write it as rolling expressions")
         body = body_expression(named)
         param = named.params.params[0].name.value
-    reads = _WindowReads(param, raw, column, _numeric(column, ctx), kind, options, ctx)
+    values = _numeric(column, ctx)
+    reads = _WindowReads(param, raw, column, values, kind, options, ctx)
     rewritten = body.visit(reads)
     assert isinstance(rewritten, cst.BaseExpression)
     if _mentions(rewritten, param):
@@ -508,14 +509,18 @@ def window_apply(call: PandasCall, ctx: RuleContext) -> Value:
     result = _checked(ctx.evaluate(rewritten, reads.bindings), ctx)
     if isinstance(result, Opaque) and result.is_const and isinstance(result.const, (int, float)) \
             and not isinstance(result.const, bool):
-        code = emit.pl("lit", float(result.const))
+        # NaN is a missing value, written as a float null
+        code = emit.pl("lit", None, dtype=emit.atom("pl.Float64")) if result.const != result.const \
+            else emit.pl("lit", float(result.const))
     elif isinstance(result, Column) and result.frame.rows == column.frame.rows:
         code = result.code.method("fill_null", False) if result.null_is_false else result.code
+        if result.dtype in ("bool", "int"):  # pandas stores what the function returns as float
+            code = code.method("cast", emit.atom("pl.Float64"))
     else:
         raise Unsupported("the function's result has no expression form porter knows")
     if not _keeps_missing(rewritten, reads.aggregates):
         # the function is only called where enough values are present
-        present = column.code.method("is_not_null")
+        present = values.method("is_not_null")
         if kind == "expanding":
             count = present.method("cum_sum")
         else:
