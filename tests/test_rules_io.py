@@ -554,3 +554,12 @@ def test_to_csv_of_aggregates_with_known_types(aggregate: str, booleans: bool, d
         run(text)
     assert (data / "polars" / "out.csv").read_text(encoding="utf-8") == \
         (data / "pandas" / "out.csv").read_text(encoding="utf-8"), converted
+
+
+def test_a_file_missing_from_the_data_folder_is_named(data: Path) -> None:
+    # --data is the folder the script runs from: a path it does not hold is said so
+    result = convert('import pandas as pd\ndf = pd.read_csv("data/produce.csv")\n', data_dir=str(data))
+    messages = [s.message for s in result.sites if s.key == "pd.read_csv"]
+    assert any("data/produce.csv is not under the --data folder" in m for m in messages), messages
+    found = convert('import pandas as pd\ndf = pd.read_csv("produce.csv")\n', data_dir=str(data))
+    assert not any("--data folder" in s.message for s in found.sites)

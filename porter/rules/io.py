@@ -180,6 +180,11 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         exprs = [emit.col(c).attr("str").method("to_datetime", time_unit="us") for c in parse_dates]
         frame = derive(frame, frame.code.method("with_columns", *exprs), same_rows=True,
                        dtypes=tuple({**dict(frame.dtypes), **{c: "datetime" for c in parse_dates}}.items()))
+    if schema is None and ctx.schema_lookup is not None and isinstance(_paths(source), str) \
+            and not is_url(_paths(source)):  # type: ignore[arg-type]
+        ctx.lower(f"{_paths(source)} is not under the --data folder (paths are looked up from "
+                  "it, as the script reads them from where it runs): the scan infers the types "
+                  "over the whole file", 0.95)
     if schema is None and not dtype:
         ctx.lower("column types are inferred from the data the same way in both, except "
                   "integer columns with missing values (float in pandas); a blank line is "
