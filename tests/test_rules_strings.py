@@ -492,6 +492,18 @@ result = parts.fillna("")
     assert "# TODO(porter)" in result.converted_text
 
 
+def test_builtins_of_the_expanded_frame() -> None:
+    # pandas is the reference implementation: one row per row of the text's frame
+    result = differential(TAGS + """
+parts = df["code"].str.split("-", expand=True)
+n = len(parts)
+labels = list(parts)
+df["p1"] = parts[1]
+result = df
+""", "n", "labels", "result")
+    assert "pl.len()" in result.converted_text, result.converted_text
+
+
 def test_parts_read_after_their_frame_changed_rows_stay_pandas() -> None:
     # pandas is the reference implementation: parts keeps the rows it was made from
     result = differential(TAGS + """

@@ -12,7 +12,7 @@ from porter.rules import rule
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_names, column_of, derive, select_columns,
 )
-from porter.translate.values import Column, Frame, Opaque, Scalar, Value
+from porter.translate.values import Column, Frame, Opaque, Parts, Scalar, Value
 
 
 def frame_of(call: PandasCall) -> Frame:
@@ -213,6 +213,8 @@ def length(call: PandasCall, ctx: RuleContext) -> Value:
     receiver = call.receiver
     if isinstance(receiver, Column):
         return Scalar(row_count(receiver.frame), pytype="int")
+    if isinstance(receiver, Parts):  # str.extract's frame: one row per row of the text's frame
+        return Scalar(row_count(receiver.source.frame), pytype="int")
     if isinstance(receiver, Frame):
         return Scalar(row_count(receiver), pytype="int")
     raise Unsupported("len of this value")

@@ -374,6 +374,9 @@ class Evaluator:
         if positional and isinstance(positional[0], Column) and positional[0].element:
             call = PandasCall(positional[0], name, positional[1:], keywords, node)
             return self.dispatch(f"element.{name}", call, node)
+        if name in _BUILTIN_RULES and positional and isinstance(positional[0], Parts) \
+                and name != "len":
+            return self.generic(node)  # round(parts), list(parts)…: pandas' DataFrame
         if name in _BUILTIN_RULES and positional and is_pandas(positional[0]):
             call = PandasCall(positional[0], name, positional[1:], keywords, node)
             return self.dispatch(_BUILTIN_RULES[name].format(kind=_prefix(positional[0])), call, node)
