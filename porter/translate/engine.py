@@ -17,7 +17,9 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.model import SiteDraft
 from porter.translate import handover, imports as import_edits
-from porter.translate.functions import discover_functions, function_definitions, learn_functions
+from porter.translate.functions import (
+    COLUMNS, EXPRESSION_ROWS, discover_functions, function_definitions, learn_functions,
+)
 from porter.rules.assign import INTERVAL_MAKERS
 from porter.translate.writes import batch_writes, is_sink_text
 from porter.translate.context import PandasCall, grouping_code
@@ -101,7 +103,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
         services.call_sites = {}
         walker = _Walker(services, facts, emit_code=False)
         walker.block(module.body, _initial_env(facts), module.default_indent, "")
-        updated = learn_functions(services, walker.returns)
+        updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values)
         if updated == services.functions:
             break
         services.functions = updated
@@ -139,6 +141,9 @@ class _Walker:
         self.emit_code = emit_code
         self.sites: list[SiteDraft] = []
         self.returns: dict[str, list[Value]] = {}
+        self.returned_of: dict[str, list[str | None]] = {}  # see returned_column
+        self.body_values: dict[str, list[Value]] = {}  # names bound in functions' bodies
+        self.param_frames: dict[int, str] = {}  # rows of frame parameters: their names
         self.function: str | None = None
         self.header_sites: list[SiteDraft] = []  # sites in the header of the compound statement at hand
         self.statement_key = 0  # the simple statement being rewritten
@@ -218,6 +223,14 @@ class _Walker:
             if function is not None and name in function.frame_params:
                 columns, dtypes = dict(function.param_schemas).get(name, (None, ()))
                 local[name] = Frame(emit.atom(name), labels_intact=False, columns=columns, dtypes=dtypes)
+                self.param_frames[local[name].rows] = name  # type: ignore[union-attr]
+            elif function is not None and name in function.column_params:
+                # a Polars expression: the caller's column (the rows are the caller's, unknown)
+                rows = Frame(emit.atom(EXPRESSION_ROWS), rows=function.column_rows or 0,
+                             labels_intact=False)
+                local[name] = Column(emit.atom(name), frame=rows,
+                                     dtype=dict(function.column_dtypes).get(name) or None)
+                local[EXPRESSION_ROWS] = rows  # names bound to its expressions stay expressions
             elif function is not None and name in dict(function.param_consts):
                 local[name] = Opaque(emit.atom(name), const=dict(function.param_consts)[name])
             elif function is not None and name in dict(function.param_choices):
@@ -621,6 +634,8 @@ class _Walker:
             value = evaluator.eval(stmt.value)
             if self.function is not None:
                 self.returns.setdefault(self.function, []).append(value)
+                if isinstance(value, Column):
+                    value = self.returned_column(value, stmt.value)
             return self.unchanged_or(stmt.value, value, indent, prefix="return ")
         if isinstance(stmt, cst.Del) and isinstance(stmt.target, cst.Subscript):
             target = stmt.target
@@ -650,6 +665,30 @@ class _Walker:
         if not changed:
             return None, sites
         return "assert " + ", ".join(parts), sites
+
+    def returned_column(self, value: Column, node: cst.BaseExpression) -> Value:
+        """What a function's `return` of a column gives its callers. An expression of the
+        column parameters, or of a frame parameter's rows as they came in, is returned as the
+        expression (the callers evaluate it in their frame). Any other column is computed
+        here and returned as the pandas Series the callers expect."""
+        assert self.function is not None
+        function = self.services.functions.get(self.function)
+        of: str | None = None
+        if function is not None and function.column_params and value.frame.rows == function.column_rows \
+                and EXPRESSION_ROWS not in value.code.text:
+            of = COLUMNS
+        elif value.frame.rows in self.param_frames \
+                and value.frame.code.text == self.param_frames[value.frame.rows]:
+            of = self.param_frames[value.frame.rows]
+        self.returned_of.setdefault(self.function, []).append(of)
+        if function is not None and of is not None and of in (
+                function.returns_column_of, COLUMNS if function.column_params else None):
+            return value
+        line, end_line = self.services.position(node)
+        site = SiteDraft("function.return_series", "handover", "handover", 1.0,
+                         "the function returns a Series its callers use as pandas: it is "
+                         "computed here (.collect()) and handed over", line, end_line)
+        return PandasValue(handover.to_pandas(value), sites=(*value.sites, site))
 
     def unchanged_or(self, node: cst.BaseExpression, value: Value, indent: str, prefix: str) -> tuple[str | None, list[SiteDraft]]:
         if is_pandas(value) and not isinstance(value, (Frame, Column)):
@@ -695,7 +734,10 @@ class _Walker:
         if len(targets) == 1:
             target = targets[0]
             if isinstance(target, cst.Name) and isinstance(stmt, cst.Assign):
-                return self.bind(target.value, evaluator.eval(stmt.value), env, indent)
+                value = evaluator.eval(stmt.value)
+                if self.function is not None:
+                    self.body_values.setdefault(self.function, []).append(value)
+                return self.bind(target.value, value, env, indent)
             if isinstance(target, cst.Subscript):
                 value = evaluator.eval(stmt.value)
                 result = self.set_item(target, value, env, evaluator, indent)

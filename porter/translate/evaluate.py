@@ -54,6 +54,16 @@ class LocalFunction:
     # parameters the body changes in place (`frame["c"] = ...`): the caller's object changes,
     # so the argument is handed to pandas in its own name and the body stays pandas for it
     mutated_params: frozenset[str] = frozenset()
+    # parameters every call passes a column of one frame, in a body that only computes one
+    # column from them: the function takes Polars expressions there and returns one
+    # (`def tidy(s): return s.str.strip_chars()`, called as `tidy(pl.col("name"))`)
+    column_params: frozenset[str] = frozenset()
+    column_dtypes: tuple[tuple[str, str], ...] = ()  # what the calls pass, when they agree
+    column_rows: int | None = None  # the rows the body's expressions stand for
+    not_expression: bool = False  # tried, and the body is more than one column's expression
+    # the frame parameter whose column the function returns unchanged in rows (`return
+    # df["kg"] * 2`): it returns that expression, evaluated in the caller's frame
+    returns_column_of: str | None = None
 
 
 @dataclass
@@ -398,6 +408,7 @@ class Evaluator:
             tuple(positional) + tuple(keywords.values()))
         parts: list[str] = []
         sites: list[SiteDraft] = []
+        bound: dict[str, Value] = {}
         position = 0
         for arg in node.args:
             # each argument is written from its own value (a keyword never stands in for a
@@ -409,7 +420,10 @@ class Evaluator:
                 value = positional[position]
                 position += 1
             sites += value.sites
+            bound[param] = value
             if isinstance(value, Frame) and param in function.frame_params:
+                text = value.code.text
+            elif isinstance(value, Column) and param in function.column_params:
                 text = value.code.text
             elif is_pandas(value):
                 text = self.handed_to_unknown(value, node).code.text
@@ -420,6 +434,21 @@ class Evaluator:
         code = Code(f"{self.source(node.func)}({', '.join(parts)})")
         if isinstance(function.returns, Frame):
             return replace(function.returns, code=code, sites=tuple(sites))
+        returned = function.returns
+        if isinstance(returned, Column) and (function.column_params or function.returns_column_of):
+            # the function returns an expression: of the columns passed, or of the frame passed
+            columns = [v for p, v in bound.items() if p in function.column_params]
+            frame = bound.get(function.returns_column_of or "")
+            if columns and all(isinstance(c, Column) for c in columns):
+                frame = columns[0].frame  # type: ignore[union-attr]
+            if isinstance(frame, Frame):
+                refs = frozenset().union(*(c.refs for c in columns)) if columns else returned.refs  # type: ignore[union-attr]
+                name = returned.name
+                if name is None and len(columns) == 1:
+                    name = columns[0].name  # type: ignore[union-attr]
+                return Column(code, frame=frame, name=name, dtype=returned.dtype, refs=refs,
+                              versions=tuple((c, frame.version(c)) for c in sorted(refs)),
+                              null_is_false=returned.null_is_false, sites=tuple(sites))
         if isinstance(function.returns, Column | Scalar):
             return PandasValue(code, sites=tuple(sites))
         return Opaque(code, sites=tuple(sites))

@@ -12,7 +12,7 @@ import libcst as cst
 from porter.analysis.mutations import changed_in_place
 from porter.emit.code import Code
 from porter.translate.evaluate import LocalFunction, Services
-from porter.translate.values import Column, Frame, Opaque, Scalar, Value, fresh_token
+from porter.translate.values import Column, Frame, Grouped, Opaque, Scalar, Value, fresh_token
 
 
 def discover_functions(module: cst.Module) -> list[LocalFunction]:
@@ -110,7 +110,22 @@ def _passed_as_values(module: cst.Module, names: set[str]) -> set[str]:
             if isinstance(node, ast.Name) and node.id in names and id(node) not in callees}
 
 
-def learn_functions(services: Services, returns: dict[str, list[Value]]) -> dict[str, LocalFunction]:
+# what a returned Column is an expression of (recorded by the engine at each `return`)
+COLUMNS = "<columns>"  # of the column parameters (an expression function)
+# the stand-in code of the frame behind column parameters: code that names it reads rows the
+# function cannot see, so a body that writes it is not an expression function
+EXPRESSION_ROWS = "_porter_caller_rows_"
+
+
+def learn_functions(services: Services, returns: dict[str, list[Value]],
+                    returned_of: dict[str, list[str | None]] | None = None,
+                    body_values: dict[str, list[Value]] | None = None) -> dict[str, LocalFunction]:
+    """What each of the script's functions takes and returns, from this pass's calls and
+    returns. `returned_of` says, for each Column a function returned, which parameter it is an
+    expression of (a frame parameter's name, COLUMNS, or None); `body_values` holds what the
+    body of a function with column parameters assigned to its names."""
+    returned_of = returned_of or {}
+    body_values = body_values or {}
     updated = {}
     for name, function in services.functions.items():
         calls = services.call_sites.get(name, [])
@@ -134,7 +149,29 @@ def learn_functions(services: Services, returns: dict[str, list[Value]]) -> dict
                                for k in kinds):
                 texts = tuple(dict.fromkeys(k.const for k in kinds))  # type: ignore[union-attr]
                 choices.append((param, texts))
+        columns = _column_params(function, calls, services.function_defs.get(name))
         returned = returns.get(name, [])
+        kinds_returned = returned_of.get(name, [])
+        column_changes: dict[str, Any] = {}
+        if function.column_params:
+            # the body ran with columns bound to the parameters: it is an expression function
+            # when it returned one column of them, and named nothing but such columns
+            good = bool(returned) and all(isinstance(r, Column) for r in returned) \
+                and kinds_returned and all(k == COLUMNS for k in kinds_returned) \
+                and all(isinstance(v, Column) and v.frame.rows == function.column_rows
+                        or isinstance(v, Opaque) and v.is_const and not v.sites
+                        for v in body_values.get(name, []))
+            if not good or set(columns) != set(function.column_params):
+                column_changes = {"column_params": frozenset(), "column_dtypes": (),
+                                  "not_expression": True}
+        elif columns and not function.not_expression:
+            column_changes = {"column_params": frozenset(columns), "column_dtypes": tuple(
+                sorted(columns.items())), "column_rows": function.column_rows or fresh_token()}
+        of = {k for k in kinds_returned}
+        returns_column_of = None
+        if returned and all(isinstance(r, Column) for r in returned) and len(of) == 1 \
+                and next(iter(of)) in frame_params:
+            returns_column_of = next(iter(of))
         template: Value | None = None
         if returned and all(isinstance(r, Frame) for r in returned):
             shapes = {(r.columns, tuple(sorted(r.dtypes)), r.index) for r in returned}  # type: ignore[union-attr]
@@ -145,7 +182,8 @@ def learn_functions(services: Services, returns: dict[str, list[Value]]) -> dict
             template = returned[0]
         updated[name] = replace(function, frame_params=frozenset(frame_params), returns=template,
                                 param_schemas=tuple(schemas), param_consts=tuple(consts),
-                                param_choices=tuple(choices))
+                                param_choices=tuple(choices), returns_column_of=returns_column_of,
+                                **column_changes)
     # keep templates stable between passes so the fixpoint check can succeed
     for name, function in updated.items():
         old = services.functions[name]
@@ -153,6 +191,56 @@ def learn_functions(services: Services, returns: dict[str, list[Value]]) -> dict
                 and _same_shape(old.returns, function.returns):
             updated[name] = replace(function, returns=old.returns)
     return updated
+
+
+def _column_params(function: LocalFunction, calls: list[tuple[Value, ...]],
+                   definition: cst.FunctionDef | None) -> dict[str, str]:
+    """The parameters that can take Polars expressions, with the dtype the calls agree on
+    ("" when they do not): every call passes columns of one frame there and no frame
+    anywhere, and the body is names bound to expressions and one `return` at its end."""
+    if not calls or definition is None or function.mutated_params or not _expression_body(definition):
+        return {}
+    found: dict[str, set[str | None]] = {}
+    for call in calls:
+        if len(call) != len(function.params):
+            return {}  # defaults or keywords: which value is which parameter is not known here
+        columns = {p: v for p, v in zip(function.params, call) if isinstance(v, Column)}
+        if any(isinstance(v, (Frame, Grouped)) for v in call) or not columns \
+                or any(c.element for c in columns.values()) \
+                or len({c.frame.rows for c in columns.values()}) != 1:
+            return {}
+        for p, c in columns.items():
+            found.setdefault(p, set()).add(c.dtype)
+    if any(p not in found for call in calls for p, v in zip(function.params, call)
+           if isinstance(v, Column)) or len({frozenset(_columns_of(function, c)) for c in calls}) != 1:
+        return {}
+    return {p: (kinds.pop() or "") if len(kinds) == 1 else "" for p, kinds in found.items()}
+
+
+def _columns_of(function: LocalFunction, call: tuple[Value, ...]) -> set[str]:
+    return {p for p, v in zip(function.params, call) if isinstance(v, Column)}
+
+
+def _expression_body(definition: cst.FunctionDef) -> bool:
+    """A docstring, names bound to values, then one `return` of a value: nothing else."""
+    body = definition.body.body if isinstance(definition.body, cst.IndentedBlock) else ()
+    statements = list(body)
+    if not statements:
+        return False
+    *head, last = statements
+    if not (isinstance(last, cst.SimpleStatementLine) and len(last.body) == 1
+            and isinstance(last.body[0], cst.Return) and last.body[0].value is not None):
+        return False
+    for i, stmt in enumerate(head):
+        if not isinstance(stmt, cst.SimpleStatementLine) or len(stmt.body) != 1:
+            return False
+        small = stmt.body[0]
+        if i == 0 and isinstance(small, cst.Expr) and isinstance(small.value, cst.SimpleString):
+            continue
+        if not (isinstance(small, cst.Assign) and len(small.targets) == 1
+                and isinstance(small.targets[0].target, cst.Name)):
+            return False
+    return True
 
 
 def _same_shape(a: Frame, b: Frame) -> bool:

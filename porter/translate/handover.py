@@ -128,7 +128,11 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
         if value is None:
             return False
         if isinstance(value, Opaque):
-            return value.node is not None and value.code.text != source(value.node)
+            if value.node is None:
+                # code porter wrote (a call of the script's own function given columns
+                # handed over): its source would subscript LazyFrames
+                return any(s.status != "converted" for s in value.sites)
+            return value.code.text != source(value.node)
         return True
 
     inputs = [call.receiver, *call.args, *call.kwargs.values()]

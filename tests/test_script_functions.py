@@ -1,0 +1,130 @@
+"""The script's own functions that take or return columns (porter/translate/functions.py).
+
+pandas is the reference implementation: each check runs the script with pandas and its
+conversion with Polars and compares the named variables.
+"""
+
+from __future__ import annotations
+
+import ast
+import textwrap
+
+import pytest
+
+from porter.api import OLDEST_PYTHON, convert_source
+from support import assert_same_value, run
+
+# tons has missing values and a NaN-free float; names have stray spaces, case and unicode
+CARGO = ("berth,kind,tons,crates,skipper\nA,grain,5.0,3, ada lind\nB,timber,,2,BO ÅSTRÖM\n"
+         "A,grain,1.5,1,ada lind \nC,salt,7.25,,\nB,grain,0.5,4,éva  noor\nA,timber,3.0,2,bo åström\n")
+
+
+@pytest.fixture(autouse=True)
+def cargo(tmp_path, monkeypatch):
+    (tmp_path / "cargo.csv").write_text(CARGO, encoding="utf-8")
+    monkeypatch.chdir(tmp_path)
+
+
+def both(source: str, *names: str) -> str:
+    source = textwrap.dedent(source)
+    result = convert_source(source)
+    ast.parse(result.converted_text, feature_version=OLDEST_PYTHON)
+    expected, actual = run(source), run(result.converted_text)
+    for name in names:
+        try:
+            assert_same_value(expected[name], actual[name])
+        except AssertionError as exc:
+            raise AssertionError(f"{name}: {exc}\n{result.converted_text}") from None
+    return result.converted_text
+
+
+def test_a_function_of_a_column_becomes_a_function_of_an_expression():
+    text = both('''
+        import pandas as pd
+        def tidy(s):
+            """Names as the harbour office writes them."""
+            return s.str.strip().str.title()
+        df = pd.read_csv("cargo.csv")
+        df["skipper"] = tidy(df["skipper"])
+        ''', "df")
+    assert "tidy(pl.col(\"skipper\"))" in text
+    assert "to_pandas" not in text and "TODO" not in text
+
+
+def test_an_expression_function_with_names_and_two_columns():
+    text = both('''
+        import pandas as pd
+        def load_per_crate(tons, crates):
+            kg = tons * 1000
+            return kg / crates
+        df = pd.read_csv("cargo.csv")
+        df["per_crate"] = load_per_crate(df["tons"], df["crates"])
+        heavy = df[df["crates"] > 1]
+        heavy = heavy.assign(per_crate=load_per_crate(heavy["tons"], heavy["crates"]))
+        ''', "df", "heavy")
+    assert "to_pandas" not in text and "TODO" not in text
+
+
+def test_columns_of_two_frames_keep_the_function_on_pandas():
+    # pandas aligns the two Series on their labels: no single Polars frame holds both
+    text = both('''
+        import pandas as pd
+        def ratio(a, b):
+            return a / b
+        df = pd.read_csv("cargo.csv")
+        first = pd.read_csv("cargo.csv").head(3)
+        r = ratio(df["tons"], first["crates"])
+        ''', "r")
+    assert "def ratio(a, b):\n    return a / b" in text
+
+
+def test_a_function_that_reduces_its_column_is_not_an_expression():
+    text = both('''
+        import pandas as pd
+        def centred(s):
+            m = s.mean()
+            return s - m
+        df = pd.read_csv("cargo.csv")
+        df["centred"] = centred(df["tons"])
+        total = centred(df["crates"]).sum()
+        ''', "df", "total")
+    assert "_porter_caller_rows_" not in text
+
+
+def test_a_function_also_called_with_a_plain_list_stays_as_it_was():
+    both('''
+        import pandas as pd
+        def doubled(s):
+            return s * 2
+        df = pd.read_csv("cargo.csv")
+        df["twice"] = doubled(df["crates"])
+        listed = doubled([1, 2])
+        ''', "df", "listed")
+
+
+def test_a_column_returned_from_a_frame_parameter_is_evaluated_in_the_callers_frame():
+    # the function once returned `pl.col("crates") * 2` to a caller that printed its sum:
+    # the expression's text, not the number
+    text = both('''
+        import pandas as pd
+        def doubled_crates(frame):
+            return frame["crates"] * 2
+        df = pd.read_csv("cargo.csv")
+        total = doubled_crates(df).sum()
+        df["twice"] = doubled_crates(df)
+        ''', "total", "df")
+    assert "TODO" not in text
+
+
+def test_a_column_of_other_rows_is_returned_as_a_pandas_series():
+    # the rows are a filter of the parameter's: the caller gets the Series pandas would
+    text = both('''
+        import pandas as pd
+        def heavy_tons(frame):
+            heavy = frame[frame["tons"] > 1]
+            return heavy["tons"]
+        df = pd.read_csv("cargo.csv")
+        total = heavy_tons(df).sum()
+        count = len(heavy_tons(df))
+        ''', "total", "count")
+    assert "return pl.col" not in text
