@@ -613,26 +613,31 @@ def _again_in_pandas(call: PandasCall, column: Column) -> Code:
     return emit.atom(f"{receiver}.str.{call.name}({args})")
 
 
-def _separator(call: PandasCall, ctx: RuleContext) -> str | None:
-    """The text split on (None: runs of whitespace), as a literal."""
+def _separator(call: PandasCall, ctx: RuleContext) -> tuple[str | None, bool]:
+    """What is split on, and whether it is literal text (None: runs of whitespace)."""
     pat = call.const("pat", 0, None)
     if pat is None:
-        return None
+        return None, True
     if not isinstance(pat, str) or not pat:
         raise ctx.todo("a separator that is not text (a compiled regex?) or is empty")
     regex = call.const("regex", None, None) if call.name == "split" else False
     if regex is False or regex is None and len(pat) == 1:
-        return pat
-    # pandas reads a longer pattern (or regex=True) as a regex; one of plain characters is
-    # the same separator as text
+        return pat, True
+    # pandas reads a longer pattern (or regex=True) with re.split
     try:
         tree = _P.parse(pat)
     except re.error:
         raise ctx.todo(f"{pat!r} is read as a regex by pandas, and is not a valid one") from None
-    if all(op is _C.LITERAL for op, _ in tree):
-        return "".join(chr(av) for _, av in tree)  # type: ignore[arg-type]
-    raise ctx.todo(f"the separator {pat!r} is a regex in pandas (re.split keeps groups and "
-                   "splits on empty matches): split on a literal text or write regex=False")
+    if all(op is _C.LITERAL for op, _ in tree):  # plain characters: the same text
+        return "".join(chr(av) for _, av in tree), True  # type: ignore[arg-type]
+    compiled = re.compile(pat)
+    if compiled.groups:
+        raise ctx.todo(f"the separator {pat!r} has groups: re.split puts what they matched "
+                       "between the parts (make them non-capturing: (?:...))")
+    if _may_match_empty(compiled):
+        raise ctx.todo(f"the separator {pat!r} can match the empty string: re.split splits "
+                       "there, Polars does not")
+    return polars_regex(pat, 0, ctx, test=False), False
 
 
 def _limit(call: PandasCall, ctx: RuleContext) -> int | None:
@@ -650,23 +655,29 @@ def split(call: PandasCall, ctx: RuleContext) -> Value:
     """s.str.split(sep) -> str.split(sep), a list per row; rsplit(sep, n=k) from the right;
     expand=True -> a frame of parts whose columns are parts.list.get(i, null_on_oob=True).
 
-    Handles: a one-character separator, or a longer one without regex metacharacters (pandas'
-    regex reads it as the same text); no separator splits on runs of whitespace as Python's
-    str.split() (str.extract_all(r"\\S+"): none for an empty or blank string); n=k keeps the
-    rest in the last (first, for rsplit) part; a missing value stays missing; a subscript of
-    the expanded frame is missing where a row has fewer parts, as in pandas.
-    Caveats: a regex separator, whitespace with n, and reading the expanded frame as a whole
-    (its width is the parts of the longest row) are TODOs; \\x1c-\\x1f separate words in Python
-    and not in Polars (0.98).
+    Handles: a one-character separator as text; a longer one (or regex=True) is a regex in
+    pandas: as text when it has no metacharacters, otherwise str.split(pat, literal=False)
+    (re.split and Polars split alike at matches that cannot be empty, with no groups); no
+    separator splits on runs of whitespace as Python's str.split() (str.extract_all(r"\\S+"):
+    none for an empty or blank string); n=k keeps the rest in the last (first, for rsplit)
+    part; a missing value stays missing; a subscript of the expanded frame is missing where a
+    row has fewer parts, as in pandas.
+    Caveats: a regex separator with groups, that can match empty text or with n, whitespace
+    with n, and reading the expanded frame as a whole (its width is the parts of the longest
+    row) are TODOs; \\x1c-\\x1f separate words in Python and not in Polars (0.98).
     """
     column = text_column(call, ctx)
     known = ("pat", "n", "expand", "regex") if call.name == "split" else ("pat", "n", "expand")
     ctx.reject_unknown(call, *known, positional=1)
-    sep = _separator(call, ctx)
+    sep, literal = _separator(call, ctx)
     n = _limit(call, ctx)
     expand = call.const("expand", None, False, kinds=(bool,))
     text = _text(column)
-    if sep is None:
+    if not literal:
+        if n is not None:
+            raise ctx.todo("a regex separator with n: Polars' splitn takes literal text")
+        parts = text.method("split", sep, literal=False)
+    elif sep is None:
         if n is not None:
             raise ctx.todo("splitting on whitespace with n: Python keeps the rest with its own "
                            "spacing")
