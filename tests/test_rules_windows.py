@@ -220,6 +220,7 @@ def test_windows_match_pandas(frame: str, how: str) -> None:
     'df["v"].rolling(3).std(ddof=0)', 'df["v"].rolling(3, min_periods=1).var(0)',
     'df["v"].expanding(2).std(ddof=2)', 'df["flag"].rolling(2).sum()',
     'df["v"].rolling(1).mean()', 'df["v"].rolling(20, min_periods=1).max()',
+    'df["v"].rolling(3, min_periods=1).std(ddof=True)',
 ])
 def test_window_options_match_pandas(expr: str) -> None:
     result = differential(WINDOWS + f"df['r'] = {expr}\nresult = df\n")
@@ -238,6 +239,9 @@ def test_window_sites_say_where_digits_can_differ() -> None:
 
 @pytest.mark.parametrize("before, key, reason", [
     ('r = df["v"].rolling("2D").mean()', "series.rolling", "a time window"),
+    ('r = df["v"].rolling(True).mean()', "series.rolling", "True/False"),
+    ('r = df["v"].rolling(2, min_periods=False).mean()', "series.rolling", "True/False"),
+    ('r = df["v"].expanding(True).mean()', "series.expanding", "True/False"),
     ('r = df["v"].rolling(2, win_type="triang").mean()', "series.rolling", "win_type"),
     ('r = df["v"].rolling(2, min_periods=3).mean()', "series.rolling", "pandas raises"),
     ('r = df["k"].rolling(2).max()', "series.rolling", "str column"),
