@@ -260,7 +260,18 @@ INF_CASES = [
                  id="stored division times zero"),
     pytest.param('df["rate"] = df["fee"] / df["hours"]\ndf["d"] = df["rate"] - df["rate"]',
                  id="stored division minus itself"),
+    # chains: the NaN of an inner operation is made missing once, by the outermost
+    pytest.param('df["d"] = (df["a"] - df["b"]) * 2 + df["a"] * df["fee"]', id="a chain of + - *"),
+    pytest.param('df["d"] = (df["a"] - df["b"]) / df["hours"] - df["b"] * 0', id="a chain with /"),
+    pytest.param('df["d"] = (df["b"] * 0 + 1) / 3', id="a chain divided by one value"),
+    pytest.param('df["d"] = (df["a"] - df["b"]) ** 0', id="NaN to the power 0 (1 in numpy)"),
+    pytest.param('df["d"] = (df["a"] - df["b"]).round(1) * df["fee"]', id="a rounded NaN times"),
 ]
+
+
+def test_a_chain_of_arithmetic_makes_nan_missing_once() -> None:
+    text = convert(INF_FRAME + 'df["d"] = (df["a"] - df["b"]) * 2 + df["a"] * df["fee"]\n').converted_text
+    assert text.count("fill_nan") == 1, text
 
 
 @pytest.mark.parametrize("before", INF_CASES)

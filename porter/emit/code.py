@@ -268,10 +268,36 @@ def _split_argument(arg: str, indent: str, width: int, min_steps: int = 2) -> li
     head, steps = parts
     heads = [head]
     if len(indent) + len(head) > width:
-        split = _split_call(head[len(keyword):], keyword, "")
+        split = _split_call(head[len(keyword):], keyword, "") or _split_operation(head[len(keyword):], keyword)
         heads = split.splitlines() if split else heads
     return [*(indent + line for line in heads), *(f"{indent}{step}" for step in steps[:-1]),
             f"{indent}{steps[-1]},"]
+
+
+def _split_operation(text: str, prefix: str) -> str | None:
+    """`(a + b - c)` too long for its line: one operand per line inside the parentheses, each
+    after its operator (a + b * c keeps b * c together)."""
+    import libcst as cst
+
+    try:
+        node = cst.parse_expression(text)
+    except cst.ParserSyntaxError:
+        return None
+    if not (isinstance(node, cst.BinaryOperation) and node.lpar):
+        return None
+    module = cst.Module([])
+    level = BINARY_PRECEDENCE.get(module.code_for_node(node.operator).strip())
+    operands: list[str] = []
+    inner: cst.BaseExpression = node.with_changes(lpar=[], rpar=[])
+    while isinstance(inner, cst.BinaryOperation) and not inner.lpar \
+            and BINARY_PRECEDENCE.get(module.code_for_node(inner.operator).strip()) == level:
+        operands.insert(0, f"{module.code_for_node(inner.operator).strip()} "
+                           f"{module.code_for_node(inner.right)}")
+        inner = inner.left
+    operands.insert(0, module.code_for_node(inner))
+    if len(operands) < 2:
+        return None
+    return "\n".join([f"{prefix}(", *(f"    {o}" for o in operands), ")"])
 
 
 def _one_argument(arg: str) -> Any:
@@ -318,6 +344,9 @@ def _chain_parts(arg: Any, min_steps: int = 2) -> tuple[str, list[str]] | None:
             attributes.insert(0, "." + inner.attr.value)  # .str / .dt between two calls
             inner = inner.value
         if not isinstance(inner, cst.Call):
+            if inner.lpar and not attributes:  # (a - b).fill_nan(None): the parentheses lead
+                steps.insert(0, step)
+                node = inner
             break
         steps.insert(0, "".join(attributes) + step)
         node = inner

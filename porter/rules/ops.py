@@ -7,6 +7,8 @@ value is always null on the Polars side; these rules rely on that.
 
 from __future__ import annotations
 
+import ast
+
 from dataclasses import replace
 import math
 
@@ -72,12 +74,15 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
     if op == "+" and ltype == rtype == "bool":
         return derived_column(column, emit.binop(lcode, "|", rcode), dtype="bool", others=[left, right])
     if op == "/":
-        code = emit.binop(lcode, "/", rcode)
+        # a NaN an operand made missing stays NaN through + - * / and is made missing by the
+        # outermost operation instead: one fill_nan for a chain of arithmetic
+        lplain, rplain = _nan_unfilled(lcode), _nan_unfilled(rcode)
+        code = emit.binop(lplain, "/", rplain)
         if _single_divisor(right) and not _exact_reciprocal(right):
             # Polars multiplies by the reciprocal of a single divisor: one binary digit off
             # pandas' quotient for about a third of the values (a later round() can flip)
-            code = emit.call(DIVIDE_FUNCTION, lcode, rcode)
-        if not _is_nonzero_constant(right):
+            code = emit.call(DIVIDE_FUNCTION, lplain, rplain)
+        if not _is_nonzero_constant(right) or lplain is not lcode or rplain is not rcode:
             code = code.method("fill_nan", None)
         dtype = "float"
     elif op == "//":
@@ -100,7 +105,14 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
             code = emit.when(emit.binop(rcode, "!=", 0), code)
     elif op in ("+", "-", "*", "**"):
         code = emit.binop(lcode, op, rcode)
-        if op != "**" and _nan_possible(op, left, right):
+        hoisted = False
+        if op != "**":  # one fill_nan for a chain of arithmetic, as for / above
+            lplain, rplain = _nan_unfilled(lcode), _nan_unfilled(rcode)
+            hoisted = lplain is not lcode or rplain is not rcode
+            code = emit.binop(lplain, op, rplain)
+        if hoisted:
+            code = code.method("fill_nan", None)
+        elif op != "**" and _nan_possible(op, left, right):
             if _numeric(left) or _numeric(right) or op != "+" and not ctx.datetimes_possible:
                 code = code.method("fill_nan", None)  # inf * 0, inf - inf: NaN, missing in pandas
             else:
@@ -113,7 +125,7 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
         elif op == "+" and "str" in (ltype, rtype):
             dtype = "str"
         if op == "**":
-            code = code.method("fill_nan", None)
+            code = _power(left, right, lcode, rcode, ctx).method("fill_nan", None)
             ctx.lower("a negative base to a fractional power is NaN in both (made missing here)", 0.98)
     else:
         raise Unsupported(f"operator {op} on columns")
@@ -122,6 +134,47 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
     result = derived_column(column, code, dtype=dtype, others=[left, right], name=_result_name(left, right))
     # inside a lambda, arithmetic on the parameter is still one value: `(s + "!").upper()`
     return replace(result, element=True) if column.element else result
+
+
+def _power(left: Value, right: Value, lcode: Code, rcode: Code, ctx: RuleContext) -> Code:
+    """a ** b as numpy computes it on pandas' floats, where a missing value is NaN: NaN ** 0
+    and 1 ** NaN are 1 (Polars: null ** 0 is null). Float operands are given NaN for missing
+    values before the power; an exponent that is a nonzero constant needs nothing."""
+    if _is_nonzero_constant(right) and not (isinstance(left, Opaque) and left.const == 1):
+        return emit.binop(lcode, "**", rcode)
+    nan = emit.call("float", "nan")
+    operands = []
+    for value, code in ((left, lcode), (right, rcode)):
+        kind = value_dtype(value)
+        if isinstance(value, Column) and kind == "float":
+            code = code.method("fill_null", nan)
+        elif isinstance(value, Column) and kind not in ("int", "bool"):
+            ctx.lower("a missing value to the power 0 (or 1 to a missing power) is 1 in pandas "
+                      "and missing here, unless the column is known to hold floats", 0.9)
+        operands.append(code)
+    return emit.binop(operands[0], "**", operands[1])
+
+
+_ARITHMETIC = (ast.Add, ast.Sub, ast.Mult, ast.Div)
+
+
+def _nan_unfilled(code: Code) -> Code:
+    """`code` without its last `.fill_nan(None)` when that step only makes missing the NaN of
+    arithmetic (+ - * /, pandas_div): the NaN goes on through the enclosing + - * / and the
+    enclosing operation's own fill_nan makes it missing. Anything else is returned as is."""
+    if code.steps != (".fill_nan(None)",) or code.base is None:
+        return code
+    inner = code.base[1:-1] if code.base.startswith("(") and code.base.endswith(")") else code.base
+    try:
+        tree = ast.parse(inner, mode="eval").body
+    except SyntaxError:
+        return code
+    if isinstance(tree, ast.BinOp) and isinstance(tree.op, _ARITHMETIC):
+        return Code(inner, emit.BINARY_PRECEDENCE["+" if isinstance(tree.op, (ast.Add, ast.Sub)) else "*"])
+    if isinstance(tree, ast.Call) and isinstance(tree.func, ast.Name) and tree.func.id == DIVIDE_FUNCTION \
+            and code.base == inner:
+        return Code(inner)
+    return code
 
 
 def _single_divisor(value: Value) -> bool:
