@@ -570,3 +570,18 @@ def test_known_difference_capitalize_sharp_s() -> None:
 def test_known_difference_split_on_separators() -> None:
     differential(HEAD + 'df = pd.DataFrame({"s": ["a\\x1cb"]})\n'
                  'df["out"] = df["s"].str.split()\nresult = df\n')
+
+
+def test_lists_written_to_csv_as_pandas_writes_them(tmp_path) -> None:
+    # pandas is the reference implementation: str(list), with the quote Python's repr picks
+    # and its escapes (an apostrophe, a backslash, a newline); a missing list is an empty field
+    path = tmp_path / "parts.csv"
+    result = differential(HEAD + f"""
+df = pd.DataFrame({{"who": ["Mags O'Derry;bolt", 'say "hi";x\\\\y', None, "new\\nline;é", "a"]}})
+df["parts"] = df["who"].str.split(";")
+df["words"] = df["who"].str.findall(r"[a-z]+")
+df.to_csv({str(path)!r}, index=False)
+result = open({str(path)!r}, encoding="utf-8").read()
+""")
+    text = result.converted_text
+    assert "TODO(porter)" not in text and "replace_many" in text, text

@@ -12,6 +12,7 @@ from porter.rules import rule
 from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, DTYPES, NA_CONSTANT, NOT_DECOMPRESSED,
                                      PANDAS_NA_TOKENS, compression_of, is_number, is_url,
                                      na_value_texts)
+from porter.rules.strings import LIST_STR, list_repr
 from porter.translate import handover
 from porter.translate.context import PandasCall, RuleContext, Unsupported, derive, select_columns
 from porter.translate.values import Frame, Module, Opaque, Scalar, Value
@@ -406,6 +407,11 @@ def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
             "replace_strict", {True: "True", False: "False"}))
     if "datetime" in kinds or (ctx.datetimes_possible and not complete):
         out.append(emit.atom(CSV_DATETIMES_CONSTANT))
+    for name, kind in frame.dtypes:  # lists of text (str.split): pandas writes str(list)
+        if kind == LIST_STR and (frame.columns is None or name in frame.columns):
+            ctx.lower("a list holding control characters other than \\n \\t \\r is written "
+                      "otherwise than Python's repr", 0.99)
+            out.append(list_repr(emit.col(name)).method("alias", name))
     return out
 
 

@@ -400,6 +400,20 @@ def list_item(column: Column, key: object, ctx: RuleContext) -> Column:
     return _result(column, code, LIST_STR)
 
 
+def list_repr(items: Code) -> Code:
+    """A list of text written as Python's str(list) writes it (pandas' to_csv of str.split's
+    lists): ['a', "it's"], with backslashes, \\n, \\t, \\r and the quote escaped."""
+    element = emit.pl("element")
+    chars, escapes = ["\\", "\n", "\t", "\r"], ["\\\\", "\\n", "\\t", "\\r"]
+    escaped = element.attr("str").method("replace_many", chars, escapes)
+    single = element.attr("str").method("replace_many", [*chars, "'"], [*escapes, "\\'"])
+    double = emit.binop(element.attr("str").method("contains", "'", literal=True), "&",
+                        emit.unary("~", element.attr("str").method("contains", '"', literal=True)))
+    item = emit.when(double, emit.pl("format", '"{}"', escaped), emit.pl("format", "'{}'", single))
+    joined = items.attr("list").method("eval", item).attr("list").method("join", ", ")
+    return emit.pl("format", "[{}]", joined)
+
+
 # -- tests that give booleans (T01, T08, M11) -------------------------------------------------
 
 def predicate(column: Column, code: Code, call: PandasCall, position: int,
