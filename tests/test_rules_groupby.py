@@ -351,3 +351,174 @@ result = df
 count = int(df["qty2"].isna().sum()) + int(df["scaled"].isna().sum())
 text = f"{m} {top}"
 """, "result", "count", "text")
+
+
+# -- groupby().apply(f) where f makes one row of aggregates ---------------------------------------
+
+# Missing keys (None), a group where the `loge` condition keeps no row (c, Éclair), NaN in a float
+# column, a missing zone (b), a group of one row (d), unicode keys, int and float columns.
+APPLY_HEAD = """\
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({
+    "shop": ["b", "a", None, "b", "a", "c", "Éclair", "c", "d"],
+    "qty": [1.0, np.nan, 3.0, 4.0, 5.0, np.nan, 2.0, 2.0, 1.5],
+    "n": [1, 2, 3, 4, 5, 6, 7, 8, 8],
+    "zone": ["loge", "pit", "loge", None, "loge", "pit", "pit", "pit", "loge"],
+})
+
+
+def summary(g):
+    # one row per shop
+    sold = g["n"].sum()
+    loge = g.loc[g["zone"] == "loge", "n"].sum()
+    return pd.Series({
+        "sold": sold,
+        "qty": g["qty"].sum(),
+        "zones": g["zone"].nunique(),
+        "biggest": g["n"].max(),
+        "loge_share": loge / sold if sold > 0 else np.nan,
+    })
+"""
+APPLY = APPLY_HEAD + """
+
+def counts(g):
+    return pd.Series({"rows": len(g), "n": g["n"].sum(), "loge_n": g.loc[g["zone"] == "loge", "n"].sum(),
+                      "zones": g.zone.nunique(), "qty_count": g["qty"].count()})
+
+
+def share_if_any(g):
+    loge = g.loc[g["zone"] == "loge", "n"].sum()
+    if loge > 0:
+        return loge / g["n"].sum()
+    return np.nan
+"""
+
+APPLY_CASES = {
+    "mixed ints and floats make every column float": 'df.groupby("shop").apply(summary)',
+    "then reset_index": 'df.groupby("shop").apply(summary).reset_index()',
+    "all ints stay ints": 'df.groupby("shop").apply(counts)',
+    "a condition with no rows in some groups": 'df.groupby("shop").apply(share_if_any)',
+    "one value: a Series without a name": 'df.groupby("shop").apply(lambda g: (g.n * g.qty).sum())',
+    "one value, reset_index names it 0": 'df.groupby("shop").apply(lambda g: len(g)).reset_index()',
+    "sort=False and dropna=False": ('df.groupby("shop", sort=False, dropna=False)'
+                                    '.apply(counts).reset_index()'),
+    "as_index=False": 'df.groupby("shop", as_index=False).apply(summary)',
+    "two keys": 'df.groupby(["zone", "shop"]).apply(lambda g: g["qty"].mean()).reset_index()',
+    "masks: != keeps missing, ~ of a NaN comparison, isin, isna": (
+        'df.groupby("shop").apply(lambda g: pd.Series({'
+        '"ne": g.loc[g["zone"] != "loge", "n"].sum(), "inv": g[~(g["qty"] > 1.5)]["n"].sum(), '
+        '"isin": g.loc[g["zone"].isin(["pit", "x"]), "n"].count(), '
+        '"na": g.loc[g["qty"].isna(), "n"].sum(), "both": g.loc[(g.n > 2) & (g.zone == "pit"), "n"].sum()}))'),
+    "mean of a mask counts NaN as False": (
+        'df.groupby("shop").apply(lambda g: (g["qty"] > 1.5).mean())'),
+    "float() of a max that has no rows in some groups": (
+        'df.groupby("shop").apply(lambda g: pd.Series({"top": float(g.loc[g["zone"] == "loge", "n"].max()), '
+        '"spread": g["qty"].max() - g["qty"].min(), "sd": g["n"].std(), "dev": (g["n"] - g["n"].mean()).sum()}))'),
+    "a test of NaN takes the else branch, != of NaN the then branch": (
+        'df.groupby("shop").apply(lambda g: pd.Series({'
+        '"a": 1.0 if g["qty"].max() > 1.5 else 0.0, "b": 1.0 if g["qty"].max() != 2.0 else 0.0, '
+        '"c": 1.0 if not g["qty"].max() > 1.5 else 0.0}))'),
+    "0 / 0 is missing": 'df.groupby("shop").apply(lambda g: g.loc[g["zone"] == "loge", "n"].sum() / g.loc[g["zone"] == "loge", "n"].count())',
+}
+
+
+@pytest.mark.parametrize("call", list(APPLY_CASES.values()), ids=list(APPLY_CASES))
+def test_groupby_apply_matches_pandas(call: str) -> None:
+    result = differential(APPLY + f"result = {call}\n")
+    assert [s.status for s in result.sites if s.key == "groupby.apply"] == ["converted"]
+    _same_types(APPLY + f"result = {call}\n", result.converted_text)
+
+
+def _same_types(source: str, converted: str) -> None:
+    """pandas makes each column int64 or float64 (12 prints as 12.0): so must Polars. (The
+    differential check reads ints and floats alike.)"""
+    expected = run(source)["result"]
+    actual = run(converted)["result"]
+    frame = expected.to_frame() if isinstance(expected, pd.Series) else expected
+    schema = (actual.collect() if hasattr(actual, "collect") else actual.to_frame()).schema
+    for name, dtype in frame.dtypes.items():
+        if dtype.kind in "if":
+            polars = next(t for c, t in schema.items() if c == str(name) or name is None)
+            assert polars.is_float() == (dtype.kind == "f"), (name, dtype, polars)
+
+
+def test_groupby_apply_code() -> None:
+    text = check_ports(APPLY_HEAD + 'result = df.groupby("shop").apply(summary).reset_index()\n',
+                       'pl.col("n").filter(pl.col("zone") == "loge").sum()')
+    assert 'pl.col("zone").drop_nulls().n_unique().cast(pl.Float64).alias("zones")' in text
+    assert ".otherwise(None)" in text and 'pl.col("qty").sum().alias("qty")' in text
+    # the function is no longer called: kept as written, said so, and not ported
+    assert "# porter: ported as group_by().agg() expressions where it is applied;" in text
+    assert '    return pd.Series({\n        "sold": sold,' in text
+    assert convert(text).converted_text == text  # converting again changes nothing
+
+
+def test_groupby_apply_function_called_elsewhere_is_ported_as_usual() -> None:
+    result = convert(APPLY + 'result = df.groupby("shop").apply(counts)\nfirst = counts(df)\n')
+    assert "# porter: ported as" not in result.converted_text
+    assert any(s.key == "groupby.apply" and s.status == "converted" for s in result.sites)
+
+
+def test_groupby_apply_confidence() -> None:
+    result = convert(APPLY + 'result = df.groupby("shop").apply(counts)\n')
+    found = [s for s in result.sites if s.key == "groupby.apply"]
+    assert found and found[0].confidence == 0.95 and "empty frame" in found[0].message
+
+
+APPLY_TODOS = [
+    pytest.param('result = df.groupby("shop").apply(lambda g: g.head(1))', "head", id="returns a frame"),
+    pytest.param('def loud(g):\n    print(len(g))\n    return g["n"].sum()\n'
+                 'result = df.groupby("shop").apply(loud)', "not one expression", id="prints"),
+    pytest.param('def looped(g):\n    total = 0\n    for v in g["n"]:\n        total += v\n'
+                 '    return total\nresult = df.groupby("shop").apply(looped)', "not one expression",
+                 id="loops"),
+    pytest.param('def grow(g):\n    g["m"] = g["n"] * 2\n    return g["m"].sum()\n'
+                 'result = df.groupby("shop").apply(grow)', "not one expression", id="changes the group"),
+    pytest.param('result = df.groupby("shop").apply(lambda g: g.loc[g["zone"] == "loge", "n"].max())',
+                 "depends on the data", id="int or NaN by group"),
+    pytest.param('result = df.groupby("shop").apply(lambda g: g["n"].sum() if len(g) > 1 else np.nan)',
+                 "depends on the data", id="int or np.nan"),
+    pytest.param('result = df.groupby("shop").apply(lambda g: pd.Series({"z": g["zone"].max(), "n": len(g)}))',
+                 "object Series", id="text value"),
+    pytest.param('result = df.groupby("shop").apply(lambda g: g["n"].sum() > 3)', "True/False",
+                 id="boolean value"),
+    pytest.param('result = df.groupby("shop", as_index=False).apply(lambda g: len(g))', "None",
+                 id="one value with as_index=False"),
+    pytest.param('result = df.groupby("shop").apply(lambda g: pd.Series({"shop": len(g)}))',
+                 "like a group key", id="a value named like the key"),
+    pytest.param('result = df.groupby("shop")["n"].apply(lambda s: s.max())', "selected columns",
+                 id="SeriesGroupBy.apply"),
+    pytest.param('result = df.groupby("shop").apply(lambda g: g["n"] - g["n"].mean())',
+                 "as a value", id="a value per row"),
+]
+
+
+@pytest.mark.parametrize(("source", "reason"), APPLY_TODOS)
+def test_groupby_apply_todos(source: str, reason: str) -> None:
+    text = check_todo(APPLY + source + "\n", "groupby.apply")
+    assert reason in text
+
+
+def test_groupby_apply_reading_a_key_column_is_a_todo() -> None:
+    # pandas 3 does not pass the key columns to the function: it raises KeyError
+    result = convert(APPLY + 'result = df.groupby("shop").apply(lambda g: g["shop"].nunique())\n')
+    assert any(s.key == "groupby.apply" and s.status == "todo" and "key column" in s.message
+               for s in result.sites)
+
+
+def test_groupby_apply_with_unknown_column_types(tmp_path, monkeypatch) -> None:
+    # read without --data: a float value makes the Series float whatever the others are (0.9);
+    # with only sums of unknown types the result type is not known (a TODO)
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "d.csv").write_text("k,v,w\na,1,2.5\nb,2,\na,3,1.0\n")
+    source = ('import pandas as pd\nd = pd.read_csv("d.csv")\n'
+              'result = d.groupby("k").apply(lambda g: pd.Series({"v": g["v"].sum(), "m": g["w"].mean()}))\n')
+    found = differential(source)
+    site = next(s for s in found.sites if s.key == "groupby.apply")
+    assert site.status == "converted" and site.confidence == 0.9
+    _same_types(source, found.converted_text)
+    result = convert('import pandas as pd\nd = pd.read_csv("d.csv")\n'
+                     'result = d.groupby("k").apply(lambda g: g["v"].sum())\n')
+    assert any(s.key == "groupby.apply" and s.status == "todo" and "--data" in s.message
+               for s in result.sites)

@@ -3,11 +3,16 @@ value_counts, unique, nunique, describe."""
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 from typing import Any
 
+import libcst as cst
+
+from porter.analysis import pandas_names
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
+from porter.rules.elementwise import body_expression
 from porter.rules.io_options import DIVIDE_FUNCTION
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_names, grouping_code,
@@ -512,3 +517,513 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
         code = code.method("fill_null", fill)
     ctx.lower("the new columns are named by their values as text (pandas keeps the values)", 0.95)
     return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False)
+
+
+# -- groupby().apply(f) where f makes one row of aggregates ---------------------------------------
+#
+# The function is not run per group: its body (a lambda, or the script's own function made one
+# expression by body_expression) is read once, with the parameter standing for any group, and
+# each value it computes becomes an expression of group_by().agg(). What the body may contain:
+# columns of the group (g["c"], g.c, g.loc[mask, "c"], g[mask]["c"]), masks comparing a column
+# with a constant (==, !=, <, ..., & | ~, isin, isna, notna), the reductions below, len(g),
+# float() / int() / abs(), + - * / between them, comparisons and `a if cond else b`, numbers and
+# np.nan, and at the top pd.Series({"name": value, ...}) or one value.
+#
+# The types of what pandas builds matter (12 prints as 12.0 in a float column), so each value
+# carries the Python types it can have for a group: {"int"}, {"float"}, or both (an int that is
+# NaN for some groups: the max of no rows). pandas makes each group's Series float64 when one of
+# its values is a float, and the frame of those Series float64 when one group's is, so every
+# column is Float64 when one value is always a float, Int64 when all are always ints, and the
+# form is a TODO when that depends on the data.
+
+APPLY_REDUCTIONS = ("sum", "mean", "median", "min", "max", "std", "var", "count", "nunique")
+_INT, _FLOAT = frozenset({"int"}), frozenset({"float"})
+PYTHON_KINDS = {int: "int", float: "float"}
+_COMPARE = {cst.Equal: "==", cst.NotEqual: "!=", cst.LessThan: "<", cst.LessThanEqual: "<=",
+            cst.GreaterThan: ">", cst.GreaterThanEqual: ">="}
+_ARITH = {cst.Add: "+", cst.Subtract: "-", cst.Multiply: "*", cst.Divide: "/"}
+
+
+@dataclass(frozen=True)
+class _Rows:
+    """The group's rows (g), or those a mask keeps (g[mask], g.loc[mask])."""
+
+    mask: Code | None = None
+
+
+@dataclass(frozen=True)
+class _Loc:
+    rows: _Rows
+
+
+@dataclass(frozen=True)
+class _GroupColumn:
+    """A column of the group's rows (or arithmetic of them, row by row): not a value (pandas
+    would align it), only reducible; `mask` keeps some of the rows."""
+
+    code: Code
+    dtype: str | None
+    mask: Code | None
+
+
+@dataclass(frozen=True)
+class _Mask:
+    """A boolean per row of the group; `null_is_false`: null where pandas has False."""
+
+    code: Code
+    null_is_false: bool
+
+    def filled(self) -> Code:
+        return self.code.method("fill_null", False) if self.null_is_false else self.code
+
+
+@dataclass(frozen=True)
+class _Agg:
+    """One value per group: an expression inside agg(), and the Python types it can have
+    (None: not known)."""
+
+    code: Code
+    kinds: frozenset[str] | None
+    is_test: bool = False  # a comparison of values (null where Python has False)
+
+
+class _BodyReader:
+    def __init__(self, param: str, grouped: Grouped, ctx: RuleContext) -> None:
+        self.param = param
+        self.grouped = grouped
+        self.ctx = ctx
+
+    def fail(self, what: str) -> Unsupported:
+        return Unsupported(f"the function {what}: porter ports a function whose values are "
+                           "reductions of the group's columns (sum, mean, nunique, len(g), ...), "
+                           "arithmetic and `a if cond else b` between them")
+
+    # -- any node -------------------------------------------------------------------------
+    def read(self, node: cst.BaseExpression) -> Any:
+        if isinstance(node, cst.Name) and node.value == self.param:
+            return _Rows()
+        if not self.uses_param(node):
+            return self.constant(node)
+        method = getattr(self, f"_{type(node).__name__}", None)
+        if method is None:
+            raise self.fail(f"uses `{_source(node)}`")
+        return method(node)
+
+    def uses_param(self, node: cst.CSTNode) -> bool:
+        found = False
+
+        class Find(cst.CSTVisitor):
+            def visit_Name(self_, name: cst.Name) -> None:
+                nonlocal found
+                found = found or name.value == self.param
+
+            def visit_Attribute(self_, attr: cst.Attribute) -> bool:
+                attr.value.visit(self_)
+                return False  # `x.g` is an attribute, not the parameter
+
+        node.visit(Find())
+        return found
+
+    def constant(self, node: cst.BaseExpression) -> _Agg:
+        value = self.ctx.evaluate(node, {})
+        if isinstance(value, Opaque) and value.is_const and not isinstance(value.const, bool) \
+                and isinstance(value.const, (int, float)):
+            kinds = _INT if isinstance(value.const, int) else _FLOAT
+            return _Agg(emit.lit(value.const), kinds)
+        raise self.fail(f"uses `{_source(node)}`, which is not a number porter reads")
+
+    def agg(self, node: cst.BaseExpression) -> _Agg:
+        value = self.read(node)
+        if isinstance(value, _Agg):
+            return value
+        if isinstance(value, _Mask):
+            raise self.fail("uses a boolean per row as a value (pandas would align it)")
+        raise self.fail(f"uses `{_source(node)}` as a value: reduce it to one value per group")
+
+    def test(self, node: cst.BaseExpression) -> Code:
+        value = self.read(node)
+        if isinstance(value, _Agg) and value.is_test:
+            return value.code
+        raise self.fail(f"tests `{_source(node)}`, which is not a comparison of values")
+
+    # -- the group, its columns and masks ---------------------------------------------------
+    def column(self, rows: _Rows, name: Any) -> _GroupColumn:
+        if not isinstance(name, str):
+            raise self.fail("selects columns porter cannot name")
+        grouped = self.grouped
+        if name in grouped.keys:
+            raise Unsupported(f"the function reads the key column {name!r}: pandas 3 does not "
+                              "pass the key columns to the function (KeyError)")
+        frame = grouped.frame
+        if frame.columns is not None and (name not in frame.columns or name in frame.index):
+            raise Unsupported(f"the function reads {name!r}, which is not a column of the "
+                              "frame (KeyError in pandas)")
+        return _GroupColumn(emit.col(name), frame.dtype(name), rows.mask)
+
+    def _Attribute(self, node: cst.Attribute) -> Any:
+        value = self.read(node.value)
+        name = node.attr.value
+        if isinstance(value, _Rows) and name == "loc":
+            return _Loc(value)
+        if isinstance(value, _Rows) and name not in pandas_names.FRAME:
+            return self.column(value, name)
+        raise self.fail(f"uses `.{name}`")
+
+    def _Subscript(self, node: cst.Subscript) -> Any:
+        value = self.read(node.value)
+        parts = [s.slice for s in node.slice]
+        if not all(isinstance(p, cst.Index) for p in parts):
+            raise self.fail("slices rows by position")
+        keys = [p.value for p in parts]  # type: ignore[union-attr]
+        if isinstance(value, _Loc) and len(keys) == 2:
+            rows = self.rows(value.rows, keys[0])
+            return self.column(rows, self.name_of(keys[1]))
+        if isinstance(value, (_Rows, _Loc)) and len(keys) == 1:
+            rows = value if isinstance(value, _Rows) else value.rows
+            key = self.read(keys[0]) if self.uses_param(keys[0]) else None
+            if isinstance(key, _Mask):
+                return _Rows(self.combined(rows.mask, key))
+            if isinstance(value, _Rows) and key is None:
+                return self.column(rows, self.name_of(keys[0]))
+        if isinstance(value, _GroupColumn) and len(keys) == 1:
+            key = self.read(keys[0])
+            if isinstance(key, _Mask):  # g["c"][g["z"] == "x"]
+                return _GroupColumn(value.code, value.dtype, self.combined(value.mask, key))
+        raise self.fail(f"uses `{_source(node)}`")
+
+    def name_of(self, node: cst.BaseExpression) -> Any:
+        value = self.ctx.evaluate(node, {})
+        return value.const if isinstance(value, Opaque) and value.is_const else None
+
+    def rows(self, rows: _Rows, node: cst.BaseExpression) -> _Rows:
+        key = self.read(node) if self.uses_param(node) else None
+        if not isinstance(key, _Mask):
+            raise self.fail(f"selects rows with `{_source(node)}`, which is not a mask of the group")
+        return _Rows(self.combined(rows.mask, key))
+
+    def combined(self, mask: Code | None, key: _Mask) -> Code:
+        # a filter keeps the rows where the mask is true: null (pandas' False) drops the row
+        return key.code if mask is None else emit.binop(mask, "&", key.code)
+
+    def unmasked(self, value: Any, node: cst.CSTNode) -> _GroupColumn:
+        if not isinstance(value, _GroupColumn) or value.mask is not None:
+            raise self.fail(f"compares `{_source(node)}`, which is not a column of the whole group")
+        return value
+
+    # -- comparisons, operators -------------------------------------------------------------
+    def _Comparison(self, node: cst.Comparison) -> Any:
+        if len(node.comparisons) != 1 or type(node.comparisons[0].operator) not in _COMPARE:
+            raise self.fail(f"compares with `{_source(node)}`")
+        op = _COMPARE[type(node.comparisons[0].operator)]
+        right_node = node.comparisons[0].comparator
+        left = self.read(node.left) if self.uses_param(node.left) else None
+        right = self.read(right_node) if self.uses_param(right_node) else None
+        if isinstance(left, _GroupColumn) or isinstance(right, _GroupColumn):
+            column_first = isinstance(left, _GroupColumn)
+            column = self.unmasked(left if column_first else right, node)
+            other_node = right_node if column_first else node.left
+            const = None if self.uses_param(other_node) else self.name_of(other_node)
+            if not isinstance(const, (str, int, float)) or (
+                    isinstance(const, float) and const != const):
+                raise self.fail("compares a column with something other than a constant "
+                                "(text or a number)")
+            code, other = column.code, emit.lit(const)
+            if op == "!=":  # pandas: a missing value differs from everything
+                return _Mask(code.method("ne_missing", other), False)
+            pair = (code, other) if column_first else (other, code)
+            return _Mask(emit.binop(pair[0], op, pair[1]), True)
+        a, b = self.agg(node.left), self.agg(right_node)
+        if op == "!=":  # Python: NaN != x is True; Polars' null would take the other branch
+            return _Agg(a.code.method("ne_missing", b.code), None, is_test=True)
+        return _Agg(emit.binop(a.code, op, b.code), None, is_test=True)
+
+    def _BinaryOperation(self, node: cst.BinaryOperation) -> Any:
+        left, right = self.read(node.left), self.read(node.right)
+        if isinstance(node.operator, (cst.BitAnd, cst.BitOr)) and isinstance(left, _Mask) \
+                and isinstance(right, _Mask):
+            op = "&" if isinstance(node.operator, cst.BitAnd) else "|"
+            # Kleene logic: null (pandas' False) & x and null | x keep the same rows
+            return _Mask(emit.binop(left.code, op, right.code),
+                         left.null_is_false or right.null_is_false)
+        if type(node.operator) not in _ARITH:
+            raise self.fail(f"uses the operator in `{_source(node)}`")
+        op = _ARITH[type(node.operator)]
+        if isinstance(left, _GroupColumn) or isinstance(right, _GroupColumn):
+            return self.row_arithmetic(node, left, right, op)
+        a, b = self.agg(node.left), self.agg(node.right)
+        if op == "/":  # 0 / 0 is NaN, which porter keeps out of frames: missing, as in pandas
+            return _Agg(emit.binop(a.code, "/", b.code).method("fill_nan", None), _FLOAT)
+        if a.kinds is None or b.kinds is None:
+            kinds = None
+        elif a.kinds == _FLOAT or b.kinds == _FLOAT:
+            kinds = _FLOAT
+        else:
+            kinds = a.kinds | b.kinds
+        return _Agg(emit.binop(a.code, op, b.code), kinds)
+
+    def row_arithmetic(self, node: cst.BinaryOperation, left: Any, right: Any,
+                       op: str) -> _GroupColumn:
+        """g["a"] * g["b"], g["a"] - 1: row by row, over the same rows."""
+        sides: list[_GroupColumn] = []
+        columns: list[_GroupColumn] = []
+        for value, child in ((left, node.left), (right, node.right)):
+            if value is None or isinstance(value, _Agg) and not self.uses_param(child):
+                const = self.name_of(child)
+                if isinstance(const, bool) or not isinstance(const, (int, float)):
+                    raise self.fail(f"uses `{_source(child)}` in row arithmetic")
+                sides.append(_GroupColumn(emit.lit(const), PYTHON_KINDS[type(const)], None))
+            elif isinstance(value, _GroupColumn):
+                sides.append(value)
+                columns.append(value)
+            elif isinstance(value, _Agg) and not value.is_test:
+                # one value per group, met by every row (g["n"] - g["n"].mean())
+                dtype = "int" if value.kinds == _INT else "float" if value.kinds == _FLOAT \
+                    else None
+                sides.append(_GroupColumn(value.code, dtype, None))
+            else:
+                raise self.fail(f"uses `{_source(child)}` in row arithmetic")
+        if len({c.mask.text if c.mask is not None else None for c in columns}) > 1:
+            raise self.fail("combines columns of different rows (pandas aligns them)")
+        a, b = sides
+        mask = columns[0].mask
+        code = emit.binop(a.code, op, b.code)
+        if op == "/":
+            return _GroupColumn(code.method("fill_nan", None), "float", mask)
+        kinds = {a.dtype, b.dtype}
+        dtype = None if None in kinds or not kinds <= {"int", "float"} else \
+            "float" if "float" in kinds else "int"
+        return _GroupColumn(code, dtype, mask)
+
+    def _UnaryOperation(self, node: cst.UnaryOperation) -> Any:
+        value = self.read(node.expression)
+        if isinstance(node.operator, cst.BitInvert) and isinstance(value, _Mask):
+            return _Mask(emit.unary("~", value.filled()), False)  # ~False is True in pandas
+        if isinstance(node.operator, cst.Not) and isinstance(value, _Agg) and value.is_test:
+            return _Agg(emit.unary("~", value.code.method("fill_null", False)), None, is_test=True)
+        if isinstance(node.operator, cst.Minus) and isinstance(value, _Agg) and not value.is_test:
+            return _Agg(emit.unary("-", value.code), value.kinds)
+        raise self.fail(f"uses `{_source(node)}`")
+
+    def _BooleanOperation(self, node: cst.BooleanOperation) -> Any:
+        a, b = self.test(node.left), self.test(node.right)
+        op = "&" if isinstance(node.operator, cst.And) else "|"
+        return _Agg(emit.binop(a, op, b), None, is_test=True)
+
+    def _IfExp(self, node: cst.IfExp) -> Any:
+        test = self.test(node.test)
+        body, orelse = self.agg(node.body), self.agg(node.orelse)
+        if body.is_test or orelse.is_test:
+            raise self.fail("returns True/False")
+        kinds = None if body.kinds is None or orelse.kinds is None else body.kinds | orelse.kinds
+        # NaN in Python's test is False, null in Polars' pl.when takes the otherwise branch
+        return _Agg(emit.when(test, body.code, orelse.code), kinds)
+
+    # -- calls ------------------------------------------------------------------------------
+    def _Call(self, node: cst.Call) -> Any:
+        if any(a.star for a in node.args):
+            raise self.fail("unpacks arguments")
+        if isinstance(node.func, cst.Name) and node.func.value in ("len", "float", "int", "abs"):
+            if len(node.args) != 1 or node.args[0].keyword is not None:
+                raise self.fail(f"calls {node.func.value} with other arguments")
+            return self.builtin(node.func.value, node.args[0].value)
+        if isinstance(node.func, cst.Attribute):
+            receiver = self.read(node.func.value)
+            name = node.func.attr.value
+            if node.args:
+                if isinstance(receiver, _GroupColumn) and name == "isin" and len(node.args) == 1:
+                    values = self.name_of(node.args[0].value)
+                    if isinstance(values, (list, tuple)) and all(
+                            isinstance(v, (str, int, float)) and not isinstance(v, bool)
+                            for v in values):
+                        column = self.unmasked(receiver, node)
+                        return _Mask(column.code.method("is_in", list(values)), False)
+                raise self.fail(f"calls .{name}() with arguments")
+            if isinstance(receiver, _GroupColumn) and name in ("isna", "isnull", "notna", "notnull"):
+                column = self.unmasked(receiver, node)
+                method = "is_null" if name in ("isna", "isnull") else "is_not_null"
+                return _Mask(column.code.method(method), False)
+            if isinstance(receiver, _GroupColumn) and name in APPLY_REDUCTIONS:
+                return self.reduction(receiver, name)
+            if isinstance(receiver, _Mask) and name in ("sum", "mean"):
+                code = receiver.filled()  # pandas counts a comparison with NaN as False
+                if name == "sum":
+                    return _Agg(code.method("sum").method("cast", emit.atom("pl.Int64")), _INT)
+                return _Agg(code.method("mean"), _FLOAT)
+            raise self.fail(f"calls .{name}()")
+        raise self.fail(f"calls `{_source(node.func)}`")
+
+    def builtin(self, name: str, arg: cst.BaseExpression) -> _Agg:
+        if name == "len":
+            value = self.read(arg)
+            mask = value.mask if isinstance(value, (_Rows, _GroupColumn)) else None
+            if not isinstance(value, (_Rows, _GroupColumn)):
+                raise self.fail(f"takes len of `{_source(arg)}`")
+            code = emit.pl("len") if mask is None else mask.method("sum")
+            return _Agg(code.method("cast", emit.atom("pl.Int64")), _INT)
+        value = self.agg(arg)
+        if name == "abs":
+            return _Agg(value.code.method("abs"), value.kinds)
+        target = "pl.Float64" if name == "float" else "pl.Int64"
+        if name == "int":  # int() of NaN raises in Python: a script that runs has none
+            self.ctx.lower("int() of a missing value raises in pandas; Polars keeps it missing",
+                           0.95)
+        return _Agg(value.code.method("cast", emit.atom(target)), _FLOAT if name == "float" else _INT)
+
+    def reduction(self, column: _GroupColumn, how: str) -> _Agg:
+        code = column.code
+        if column.mask is not None:
+            code = code.method("filter", column.mask)
+        dtype = column.dtype
+        if how in ("count", "nunique"):
+            return _Agg(agg_expr(code, how), _INT)
+        if dtype in ("str", "datetime", "date", "category", "enum") and how != "mean":
+            raise Unsupported(f"the function takes the {how} of the {dtype} column "
+                              f"`{column.code.text}`: pandas keeps such values in an object "
+                              "Series")
+        if how in ("mean", "median", "std", "var"):
+            return _Agg(code.method(how), _FLOAT)
+        if dtype == "bool":
+            if how != "sum":
+                raise Unsupported(f"the {how} of a boolean column gives True/False: pandas "
+                                  "keeps them in an object Series")
+            return _Agg(code.method("sum").method("cast", emit.atom("pl.Int64")), _INT)
+        if dtype == "float":
+            return _Agg(code.method(how), _FLOAT)
+        if dtype == "int":
+            if how == "sum":  # the sum of no rows is 0
+                return _Agg(code.method("sum"), _INT)
+            # the min / max of no rows is NaN: only a filtered selection can have none
+            return _Agg(code.method(how), _INT if column.mask is None else _INT | _FLOAT)
+        return _Agg(code.method(how), None)
+
+
+def _source(node: cst.CSTNode) -> str:
+    return cst.Module(body=[]).code_for_node(node)
+
+
+@rule("groupby.apply")
+def groupby_apply(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.groupby(keys).apply(f), f making one row of aggregates -> group_by(keys).agg(...).
+
+    Handles: f a lambda or the script's own function (one parameter; local names, `if` with
+    `return`s) returning pd.Series({"name": value, ...}) or one value; values such as
+    g["c"].sum(), g["c"].nunique(), g.loc[g["z"] == "x", "c"].sum(), len(g), arithmetic and
+    `a / b if b > 0 else np.nan`; pandas' types: every column Float64 when one value is always
+    a float (12 becomes 12.0), Int64 when all are ints; one value gives an unnamed Series;
+    missing keys dropped, keys sorted, sort=False, dropna=False, as_index=False.
+    Caveats: loops, printing, returning a frame, changing the group, text, boolean or date
+    values, an int that is NaN for some groups only (the max of no rows: pandas' types then
+    depend on the data), a Series key named like a group key and SeriesGroupBy.apply are
+    TODOs; an empty frame gives pandas' input columns (f is never called) (0.95).
+    """
+    grouped = grouped_of(call)
+    ctx.reject_unknown(call, "func", "include_groups", positional=1)
+    if call.const("include_groups", None, False) is not False:
+        raise ctx.todo("include_groups=True (pandas 3 raises ValueError)")
+    if grouped.selection is not None:
+        raise ctx.todo("apply on selected columns: write the function as agg() of the column")
+    param, body = _applied_body(call, ctx)
+    reader = _BodyReader(param, grouped, ctx)
+    series = _series_dict(body, ctx)
+    names: list[str] = []
+    values: list[_Agg] = []
+    if series is None:
+        if not grouped.as_index:
+            raise ctx.todo("as_index=False with one value per group: pandas names the column "
+                           "None, which Polars cannot")
+        values.append(reader.agg(body))
+        names.append("0")
+    else:
+        for name, node in series:
+            if name in grouped.keys:
+                raise ctx.todo(f"the Series names a value {name!r} like a group key: pandas "
+                               "makes a column and an index level of one name")
+            names.append(name)
+            values.append(reader.agg(node))
+    if any(v.is_test for v in values):
+        raise ctx.todo("the function returns True/False: pandas keeps it in an object Series")
+    kinds = [v.kinds for v in values]
+    target = "pl.Float64"
+    if any(k == _FLOAT for k in kinds):
+        dtype = "float"
+        if any(k is None for k in kinds):
+            ctx.lower("some values' column types are not known (run with --data): a text "
+                      "value would fail in Polars where pandas keeps an object Series", 0.9)
+    elif all(k == _INT for k in kinds):
+        dtype = "int"
+    elif any(k is None for k in kinds):
+        raise ctx.todo("porter does not know the types of the columns the function reduces "
+                       "(run with --data): pandas' result is int or float by them")
+    else:
+        raise ctx.todo("a value is an int for some groups and NaN for others (the min/max of "
+                       "no rows, `x if c else np.nan`): pandas makes every column float only "
+                       "when that happens, which depends on the data; wrap it in float(...)")
+    exprs = []
+    for name, value in zip(names, values):
+        code = value.code
+        if dtype == "float" and value.kinds != _FLOAT:
+            code = _recast(code, target)  # pandas' Series is float64
+        exprs.append(code.method("alias", name))
+    ctx.lower("on an empty frame pandas never calls the function and returns the input's "
+              "columns; Polars returns the function's", 0.95)
+    return aggregate(grouped, exprs, names, ctx, series_name=None, is_series=series is None,
+                     dtypes=[dtype] * len(names))
+
+
+def _recast(code: Code, target: str) -> Code:
+    """`code` cast to `target`, in place of a cast it ends with (a count's Int64)."""
+    if code.base is not None and code.steps and code.steps[-1].startswith(".cast("):
+        code = Code(code.base + "".join(code.steps[:-1]), code.prec, code.base, code.steps[:-1]) \
+            if len(code.steps) > 1 else Code(code.base)
+    return code.method("cast", emit.atom(target))
+
+
+def _applied_body(call: PandasCall, ctx: RuleContext) -> tuple[str, cst.BaseExpression]:
+    """The parameter and the body (one expression) of the function passed to apply."""
+    function = call.arg("func", 0)
+    node = function.node if isinstance(function, Opaque) else None
+    if isinstance(node, cst.Lambda):
+        params = node.params
+        if len(params.params) != 1 or params.star_arg not in (None, cst.MaybeSentinel.DEFAULT) \
+                or params.kwonly_params or params.star_kwarg or params.posonly_params:
+            raise ctx.todo("a lambda that does not take exactly the group")
+        return params.params[0].name.value, node.body
+    definition = ctx.function_def(node.value) if isinstance(node, cst.Name) \
+        and ctx.function_def is not None else None
+    if not isinstance(definition, cst.FunctionDef):
+        raise ctx.todo("a function porter cannot read: define it in the script, or write it "
+                       "as agg() expressions")
+    if definition.asynchronous is not None:
+        raise ctx.todo("an async function")
+    try:
+        body = body_expression(definition)
+    except Unsupported as exc:
+        raise ctx.todo(f"{definition.name.value} is not one expression ({exc.reason}): "
+                       "write it as agg() expressions") from None
+    return definition.params.params[0].name.value, body
+
+
+def _series_dict(node: cst.BaseExpression,
+                 ctx: RuleContext) -> list[tuple[str, cst.BaseExpression]] | None:
+    """The items of `pd.Series({"name": value, ...})`, or None for a function of one value."""
+    if not isinstance(node, cst.Call):
+        return None
+    func = ctx.evaluate(node.func, {})
+    if not (isinstance(func, Module) and func.qualname == "pandas.Series"):
+        return None
+    if len(node.args) != 1 or node.args[0].keyword is not None \
+            or not isinstance(node.args[0].value, cst.Dict):
+        raise Unsupported("pd.Series of something other than one dict written out")
+    items = []
+    for element in node.args[0].value.elements:
+        if not isinstance(element, cst.DictElement):
+            raise Unsupported("** in the Series' dict")
+        key = ctx.evaluate(element.key, {})
+        if not (isinstance(key, Opaque) and isinstance(key.const, str)):
+            raise Unsupported("a Series label that is not text written out")
+        if any(k == key.const for k, _ in items):
+            raise Unsupported(f"the label {key.const!r} twice")
+        items.append((key.const, element.value))
+    if not items:
+        raise Unsupported("an empty Series (pandas returns no columns)")
+    return items

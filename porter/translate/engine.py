@@ -19,6 +19,7 @@ from porter.model import SiteDraft
 from porter.translate import handover, imports as import_edits
 from porter.translate.functions import (
     COLUMNS, EXPRESSION_ROWS, discover_functions, function_definitions, learn_functions,
+    marked_as_applied, ported_where_applied,
 )
 from porter.rules.assign import INTERVAL_MAKERS
 from porter.translate.writes import batch_writes, is_sink_text
@@ -216,6 +217,8 @@ class _Walker:
         return [stmt], env
 
     def function_def(self, stmt: cst.FunctionDef, env: dict[str, Value], unit: str, indent: str) -> Any:
+        if ported_where_applied(stmt, self.services):
+            return marked_as_applied(stmt)  # its pandas body is no longer run: left as written
         function = self.services.functions.get(stmt.name.value)
         local = dict(env)
         for param in (*stmt.params.posonly_params, *stmt.params.params, *stmt.params.kwonly_params):

@@ -105,6 +105,9 @@ class Services:
     # whether a node is glued to the word before it (`if(`, `not(`): its rewrite needs parentheses
     glued: Callable[[cst.CSTNode], bool] = lambda node: False
     mutated: frozenset[str] = frozenset()  # names the script changes in place (never constants)
+    # the script's own functions a converted groupby().apply read as expressions, with the
+    # ids of those apply calls (functions.ported_where_applied)
+    applied_functions: dict[str, set[int]] = field(default_factory=dict)
 
 
 class Evaluator:
@@ -604,6 +607,10 @@ class Evaluator:
         if ctx.todo_note is not None:
             message = ctx.todo_note
         site = SiteDraft(key, entry.rule or key, status, ctx.confidence, message, line, end_line)
+        if key == "groupby.apply" and status == "converted":
+            function = call.args[0] if call.args else call.kwargs.get("func")
+            if isinstance(function, Opaque) and isinstance(function.node, cst.Name):
+                self.services.applied_functions.setdefault(function.node.value, set()).add(id(node))
         return result.with_sites(*_child_sites(call, result), site)
 
     def evaluate_with(self, node: cst.BaseExpression, bindings: dict[str, Value]) -> Value:

@@ -245,3 +245,34 @@ def _expression_body(definition: cst.FunctionDef) -> bool:
 
 def _same_shape(a: Frame, b: Frame) -> bool:
     return (a.columns, tuple(sorted(a.dtypes)), a.index) == (b.columns, tuple(sorted(b.dtypes)), b.index)
+
+
+# -- functions applied to each group --------------------------------------------------------------
+
+APPLIED_NOTE = "# porter: ported as group_by().agg() expressions where it is applied;"
+APPLIED_NOTE_REST = "#   nothing here calls this pandas definition any more"
+
+
+def ported_where_applied(stmt: cst.FunctionDef, services: Services) -> bool:
+    """Whether every use of the function is a groupby().apply porter read as expressions (or
+    porter said so on an earlier conversion): its body is no longer run, so it is not ported
+    (its parameter is a pandas group) and stays as the user wrote it, for other callers."""
+    if _marked(stmt):
+        return True
+    name = stmt.name.value
+    applied = services.applied_functions.get(name, set())
+    # every other Name spelled like the function is one of those applies (the def is one)
+    return bool(applied) and services.function_defs.get(name) is stmt \
+        and len(applied) == services.name_uses.get(name, 0) - 1
+
+
+def _marked(stmt: cst.FunctionDef) -> bool:
+    return any(line.comment is not None and line.comment.value == APPLIED_NOTE
+               for line in stmt.leading_lines)
+
+
+def marked_as_applied(stmt: cst.FunctionDef) -> cst.FunctionDef:
+    if _marked(stmt):
+        return stmt
+    notes = [cst.EmptyLine(comment=cst.Comment(text)) for text in (APPLIED_NOTE, APPLIED_NOTE_REST)]
+    return stmt.with_changes(leading_lines=[*stmt.leading_lines, *notes])
