@@ -128,3 +128,16 @@ def test_a_column_of_other_rows_is_returned_as_a_pandas_series():
         count = len(heavy_tons(df))
         ''', "total", "count")
     assert "return pl.col" not in text
+
+
+def test_a_hand_over_after_a_filter_says_the_labels_are_renumbered():
+    result = convert_source(textwrap.dedent('''
+        import pandas as pd
+        import matplotlib_like
+        df = pd.read_csv("cargo.csv")
+        heavy = df[df["tons"] > 1]
+        matplotlib_like.plot(heavy["tons"])
+        matplotlib_like.plot(df["tons"])
+        '''))
+    messages = [s.message for s in result.sites if s.key == "handover.unknown_code"]
+    assert len(messages) == 2 and "renumbered" in messages[0] and "renumbered" not in messages[1]

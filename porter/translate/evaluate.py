@@ -652,10 +652,16 @@ class Evaluator:
         """A pandas value passed to code porter does not model: give it the pandas object."""
         line, end_line = self.services.position(node)
         code = handover.to_pandas(value)
-        site = SiteDraft("handover.unknown_code", "handover", "todo", 0.0,
-                         "passed to code porter does not understand: handed over to pandas "
-                         "with .collect().to_pandas(); port that code to take a Polars frame",
-                         line, end_line)
+        message = ("passed to code porter does not understand: handed over to pandas with "
+                   ".collect().to_pandas(); port that code to take a Polars frame")
+        frame = value if isinstance(value, Frame) else value.frame if isinstance(value, Column) else None
+        if frame is not None and not frame.labels_intact and not frame.index:
+            # after a filter or a sort pandas' labels are the original row numbers; the frame
+            # handed over is numbered 0..n-1 again (a known gap: labels are not carried yet)
+            message += (". Its row labels are renumbered 0..n-1 (pandas kept the original row "
+                        "numbers after the filter or sort): check that the code does not read "
+                        "them (.loc, .index, alignment with another Series, a plot's x axis)")
+        site = SiteDraft("handover.unknown_code", "handover", "todo", 0.0, message, line, end_line)
         return PandasValue(code, sites=value.sites + (site,))
 
     # -- everything else ------------------------------------------------------------------------
