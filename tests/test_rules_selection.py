@@ -264,3 +264,19 @@ def test_explode_of_a_column_of_unknown_type_says_so() -> None:
     source = EXPLODE + 'df = df.set_index("job").reset_index()\nr = df.explode("p")\n'
     site = next(s for s in convert(source).sites if s.key == "frame.explode")
     assert site.confidence == 0.95 and "lists" in site.message
+
+
+@pytest.mark.parametrize("expr", [
+    pytest.param('df["p"].explode()', id="series explode"),
+    pytest.param('df["w"].explode(ignore_index=True)', id="series explode of empty lists"),
+    pytest.param('df["parts"].str.split(";").explode().value_counts()', id="count the parts"),
+    pytest.param('df["parts"].str.split(";").explode().str.len()', id="text after explode"),
+])
+def test_series_explode_matches_pandas(expr: str) -> None:
+    # pandas is the reference implementation
+    result = differential(EXPLODE + f"result = {expr}\n")
+    assert "TODO(porter)" not in result.converted_text, result.converted_text
+
+
+def test_series_explode_of_text_is_a_todo() -> None:
+    check_todo(EXPLODE + 'r = df["job"].explode()\n', "series.explode")

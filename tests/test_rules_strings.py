@@ -111,6 +111,7 @@ PORTS = [
     _port('df["s"].str.count("p")', 'pl.col("s").str.count_matches("p").cast(pl.Int64)'),
     _port('df["s"].str.count("P", flags=re.I)', 'str.count_matches("(?i)P")'),
     _port('df["s"].str.findall("p+")', 'pl.col("s").str.extract_all("p+")'),
+    _port('df["s"].str.split(".").str.join("+")', 'pl.col("s").str.split(".").list.join("+")'),
 ]
 
 
@@ -147,6 +148,7 @@ TODOS = [
     pytest.param('df["s"].str.findall("p*")', "series.str.findall", id="findall empty match"),
     pytest.param('df["s"].str.count("x*")', "series.str.count", id="count empty match"),
     pytest.param('df["s"].str.count("c$")', "series.str.count", id="count with a final dollar"),
+    pytest.param('df["s"].str.join("-")', "series.str.join", id="join the characters of text"),
     pytest.param('df["s"].str.contains("a(?=p)")', "series.str.contains", id="lookahead"),
     pytest.param('df["s"].str.contains(r"(p)\\1")', "series.str.contains", id="backreference"),
     pytest.param('df["s"].str.contains(r"\\<a")', "series.str.contains",
@@ -357,6 +359,8 @@ SAME = [
     'df["s"].str.findall("p+")',
     'df["s"].str.findall(r"\\w\\.")',
     'df["s"].str.findall("(?:a|x)+")',
+    'df["s"].str.split(".").str.join("+")',
+    'df["s"].str.findall("[a-c]").str.join("")',
 ]
 
 

@@ -402,3 +402,38 @@ def explode(call: PandasCall, ctx: RuleContext) -> Value:
                              keep_nulls=True)
     return derive(frame, code, same_rows=False, labels_intact=bool(ignore_index),
                   dtypes=tuple(dtypes.items()))
+
+
+@rule("series.explode")
+def series_explode(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.explode() -> the column of frame.select(s).explode(..., empty_as_null=True,
+    keep_nulls=True).
+
+    Handles: an empty list and a missing value each give one missing value, as in pandas.
+    Caveats: a column not known to hold lists lowers confidence, as for DataFrame.explode.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "ignore_index", positional=1)
+    ignore_index = call.const("ignore_index", 0, False, kinds=(bool,))
+    frame = column.frame
+    if frame.index:
+        raise Unsupported("a Series with an index porter keeps as columns")
+    kind = column.dtype
+    if kind is None:
+        ctx.lower("the Series is taken to hold lists (pandas keeps other values as they are; "
+                  "Polars refuses text)", 0.95)
+    elif not kind.startswith("list["):
+        raise Unsupported(f"the Series holds {kind} values, not lists: pandas keeps them as they are")
+    name = column.name if column.name is not None else "0"
+    expr = column.code if column.code.text == emit.col(name).text else \
+        column.code.method("alias", name)
+    code = frame.code.method("select", expr).method("explode", name, empty_as_null=True,
+                                                     keep_nulls=True)
+    element = kind[len("list["):-1] if kind else None
+    rows = derive(frame, code, same_rows=False, columns=(name,), labels_intact=bool(ignore_index),
+                  dtypes=((name, element),) if element else (), versions=((name, 0),),
+                  index=())
+    return column_of(rows, name) if column.name is not None else \
+        Column(emit.col(name), frame=rows, name=None, dtype=element, refs=frozenset({name}),
+               versions=((name, 0),))

@@ -802,3 +802,21 @@ def expanded_columns(parts: Parts, names: list[str], frame: Frame, ctx: RuleCont
                   f"{len(names)}, and Polars would take the first {len(names)}", 0.98)
         labels = list(range(len(names)))
     return [part(parts, label, ctx) for label in labels]
+
+
+@rule("series.str.join")
+def join(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str.join(sep) on a column of lists (str.split) -> list.join(sep).
+
+    Handles: a missing list stays missing, an empty list gives "".
+    Caveats: on a column of text pandas puts sep between the characters: a TODO.
+    """
+    column = accessor_column(call)
+    ctx.reject_unknown(call, "sep", positional=1)
+    sep = call.const("sep", 0)
+    if not isinstance(sep, str):
+        raise ctx.todo("a separator that is not text")
+    if column.dtype != LIST_STR:
+        raise ctx.todo("str.join of a column not known to hold lists (pandas puts the separator "
+                       "between the characters of text)")
+    return _string(column, column.code.attr("list").method("join", sep))
