@@ -578,6 +578,17 @@ ASOF_CASES = {
                    'result = pd.merge_asof(trips, fares, on="t", by="line", tolerance=0.5)'),
     "empty left": 'result = pd.merge_asof(trips[trips["pax"] > 100], fares, on="t", by="line")',
     "empty right": 'result = pd.merge_asof(trips, fares[fares["zone"] > 9], on="t", by="line")',
+    "nearest: a tie takes the backward row, equal forward keys the first": (
+        'result = pd.merge_asof(trips, fares, on="t", direction="nearest")'),
+    "nearest by a group, no exact matches": (
+        'result = pd.merge_asof(trips, fares, on="t", by="line", direction="nearest", '
+        'allow_exact_matches=False)'),
+    "nearest with a tolerance and keys of two names": (
+        'result = pd.merge_asof(trips, tariffs, left_on="t", right_on="since", left_by="line", '
+        'right_by="route", direction="nearest", tolerance=1)'),
+    "nearest on floats, empty right": (
+        'trips["t"] = trips["t"] / 2\nfares["t"] = fares["t"] / 2\n'
+        'result = pd.merge_asof(trips, fares[fares["zone"] > 9], on="t", direction="nearest")'),
     "after a sort": ('trips = trips.sort_values("t", ascending=False).sort_values("t")\n'
                      'result = pd.merge_asof(trips, fares, on="t", by="line")'),
 }
@@ -622,8 +633,6 @@ def test_merge_asof_code_and_confidence() -> None:
 
 
 ASOF_TODOS = [
-    pytest.param('result = pd.merge_asof(trips, fares, on="t", direction="nearest")', "nearest",
-                 id="nearest"),
     pytest.param('result = pd.merge_asof(trips, fares, left_index=True, right_index=True)',
                  "left_index", id="index"),
     pytest.param('result = pd.merge_asof(trips, fares, on="t", tolerance=n)',

@@ -335,13 +335,15 @@ def merge_asof(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: the left's rows in their order, each with the last right row whose key is <= its
     own (backward) or the first whose key is >= (forward), as pandas picks them among equal
-    keys; allow_exact_matches=False; tolerance as a number or a pd.Timedelta; pandas' columns:
+    keys; nearest as pandas picks it (the forward row only when strictly nearer: a backward
+    and a forward join_asof of the right's row numbers, then a join on the nearer one; Polars'
+    own "nearest" takes the forward row on a tie and the last of equal keys);
+    allow_exact_matches=False; tolerance as a number or a pd.Timedelta; pandas' columns:
     the left ones, then the right ones without the `by` columns and without the key when both
     sides call it the same (left_on/right_on of two names keep both, and left_by/right_by of
     two names keep the right one, in the right frame's order); suffixes on both sides for the
     other columns both frames have; an int key against a float one.
-    Caveats: direction="nearest" is a TODO (pandas prefers the backward row on a tie and the
-    first of equal forward keys, Polars the last); a missing `by` value matches a missing one
+    Caveats: a missing `by` value matches a missing one
     in pandas and nothing in Polars (0.95); an int column of the right frame with an unmatched
     row stays an integer column with missing values (float in pandas), as for merge.
     """
@@ -358,11 +360,7 @@ def merge_asof(call: PandasCall, ctx: RuleContext) -> Value:
     if left.index or right.index:
         raise ctx.todo("a frame keeps an index (after a groupby): call reset_index() first")
     direction = args.const("direction", None, "backward", kinds=(str,))
-    if direction == "nearest":
-        raise ctx.todo("direction='nearest': on a tie pandas takes the backward row and, among "
-                       "equal forward keys, the first; Polars' strategy='nearest' takes the "
-                       "last: join backward and forward and pick the nearer row")
-    if direction not in ("backward", "forward"):
+    if direction not in ("backward", "forward", "nearest"):
         raise ctx.todo(f"direction={direction!r} (pandas raises)")
     exact = args.const("allow_exact_matches", None, True, kinds=(bool,))
     lkey, rkey = _asof_keys(args, ctx)
@@ -418,7 +416,12 @@ def merge_asof(call: PandasCall, ctx: RuleContext) -> Value:
         # Polars cannot check the keys' order within groups and would warn; pandas has
         # checked that both keys are sorted (it raises otherwise)
         kwargs["check_sortedness"] = False
-    code = lside.code.method("join_asof", rcode, **kwargs)
+    if direction == "nearest":
+        dropped = [b for a, b in zip(lby, rby) if a == b] + [b for b in renamed_by if b not in rby]
+        code = _nearest(lside.code, rcode, kwargs, lkey, rkey, dropped + (
+            [rkey] if lkey == rkey else []))
+    else:
+        code = lside.code.method("join_asof", rcode, **kwargs)
     columns = None
     if lside.columns is not None and rside.columns is not None:
         columns = (*lside.columns,
@@ -426,6 +429,35 @@ def merge_asof(call: PandasCall, ctx: RuleContext) -> Value:
     dtypes = {**rside.dtypes, **lside.dtypes} if columns is not None else {}
     return Frame(code, columns=columns, labels_intact=True,
                  dtypes=tuple((c, dtypes[c]) for c in columns or () if c in dtypes))
+
+
+def _nearest(left: Code, right: Code, kwargs: dict[str, object], lkey: str, rkey: str,
+             dropped: list[str]) -> Code:
+    """direction="nearest" as pandas picks: the backward and the forward match (each within
+    the tolerance), the forward one only when it is strictly nearer. Polars' own "nearest"
+    takes the forward row on a tie and the last of equal forward keys."""
+    row = "__asof_row"
+    right = right.method("with_row_index", row)
+    by = next((v for k, v in kwargs.items() if k in ("by", "by_right")), [])
+    by_names = [by] if isinstance(by, str) else list(by)  # type: ignore[call-overload]
+    code = left
+    for strategy, tag in (("backward", "__asof_back"), ("forward", "__asof_fwd")):
+        candidates = right.method("select", *by_names, emit.col(rkey).method("alias", tag + "_key"),
+                                  emit.col(row).method("alias", tag))
+        options = {k: v for k, v in kwargs.items() if k not in ("on", "right_on", "coalesce")}
+        options["left_on"], options["right_on"] = lkey, tag + "_key"
+        options["strategy"] = strategy
+        code = code.method("join_asof", candidates, **options)
+    back, fwd, key = emit.col("__asof_back_key"), emit.col("__asof_fwd_key"), emit.col(lkey)
+    pick = (emit.pl("when", fwd.method("is_null")).method("then", emit.col("__asof_back"))
+            .method("when", back.method("is_null")).method("then", emit.col("__asof_fwd"))
+            .method("when", emit.binop(emit.binop(fwd, "-", key), "<", emit.binop(key, "-", back)))
+            .method("then", emit.col("__asof_fwd")).method("otherwise", emit.col("__asof_back"))
+            .method("alias", row))
+    rows = right.method("drop", *dropped) if dropped else right
+    return (code.method("with_columns", pick)
+            .method("join", rows, on=row, how="left", maintain_order="left")
+            .method("drop", row, "__asof_back", "__asof_back_key", "__asof_fwd", "__asof_fwd_key"))
 
 
 def _one_key(value: Any, what: str, ctx: RuleContext) -> str | None:
