@@ -239,9 +239,9 @@ def test_window_sites_say_where_digits_can_differ() -> None:
 
 @pytest.mark.parametrize("before, key, reason", [
     ('r = df["v"].rolling("2D").mean()', "series.rolling", "a time window"),
-    ('r = df["v"].rolling(True).mean()', "series.rolling", "True/False"),
-    ('r = df["v"].rolling(2, min_periods=False).mean()', "series.rolling", "True/False"),
-    ('r = df["v"].expanding(True).mean()', "series.expanding", "True/False"),
+    ('r = df["v"].rolling(True).mean()', "series.rolling", "=True: porter reads whole numbers"),
+    ('r = df["v"].rolling(2, min_periods=False).mean()', "series.rolling", "=False: porter reads whole numbers"),
+    ('r = df["v"].expanding(True).mean()', "series.expanding", "=True: porter reads whole numbers"),
     ('r = df["v"].rolling(2, win_type="triang").mean()', "series.rolling", "win_type"),
     ('r = df["v"].rolling(2, min_periods=3).mean()', "series.rolling", "pandas raises"),
     ('r = df["k"].rolling(2).max()', "series.rolling", "str column"),

@@ -242,13 +242,6 @@ def _window_args(options: dict[str, object], kind: str) -> tuple[list[object], d
     return [size], kwargs
 
 
-def _not_bool(*values: object, **named: object) -> None:
-    """True/False where pandas wants a number of rows: pandas raises (is_integer(True) is
-    False), Polars would read 1."""
-    if any(isinstance(v, bool) for v in (*values, *named.values())):
-        raise Unsupported("True/False where pandas wants a whole number (pandas raises)")
-
-
 @rule("series.rolling")
 def rolling(call: PandasCall, ctx: RuleContext) -> Value:
     """s.rolling(n, min_periods=m, center=c) -> a window waiting for its method
@@ -260,7 +253,6 @@ def rolling(call: PandasCall, ctx: RuleContext) -> Value:
     column = _column(call)
     ctx.reject_unknown(call, "window", "min_periods", "center", positional=3)
     window = call.const("window", 0, kinds=(int, str))
-    _not_bool(window, min_periods=call.const("min_periods", 1, None, kinds=(int,)))
     if isinstance(window, str):
         raise Unsupported("a time window")
     if window < 1:
@@ -282,7 +274,6 @@ def expanding(call: PandasCall, ctx: RuleContext) -> Value:
     column = _column(call)
     ctx.reject_unknown(call, "min_periods", positional=1)
     least = call.const("min_periods", 0, 1, kinds=(int,))
-    _not_bool(least)
     if least < 0:
         raise Unsupported(f"min_periods={least} (pandas raises)")
     _numeric(column, ctx)
@@ -339,7 +330,7 @@ def window_aggregate(call: PandasCall, ctx: RuleContext) -> Value:
     ddof = 1
     if how in ("std", "var"):
         ctx.reject_unknown(call, "ddof", "numeric_only", positional=1)
-        ddof = int(call.const("ddof", 0, 1, kinds=(int,)))  # pandas reads True as 1
+        ddof = int(call.const("ddof", 0, 1, kinds=(int, bool)))  # pandas reads True as 1
     else:
         ctx.reject_unknown(call, "numeric_only")
     _last_digits(column, how, kind, options, ctx)

@@ -91,7 +91,7 @@ class PandasCall:
 
 def _of_kind(value: Any, kinds: tuple[type, ...]) -> bool:
     """isinstance, except that True/False is not a number here (only `bool` admits it)."""
-    return isinstance(value, bool) if isinstance(value, bool) else isinstance(value, kinds)
+    return bool in kinds if isinstance(value, bool) else isinstance(value, kinds)
 
 
 def _kinds(kinds: tuple[type, ...]) -> str:
