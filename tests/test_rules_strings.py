@@ -589,3 +589,14 @@ result = open({str(path)!r}, encoding="utf-8").read()
 """)
     text = result.converted_text
     assert "TODO(porter)" not in text and "replace_many" in text, text
+
+
+def test_parts_of_a_series_of_its_own() -> None:
+    # pandas is the reference implementation: a Series not taken from a frame
+    result = differential(HEAD + """
+s = pd.Series(["a1", "b2", None, "c3", "a٣"])
+parts = s.str.extract(r"([ab])?(\\\\d)")
+letters = parts[0]
+digits = parts[1]
+""", "letters", "digits")
+    assert "TODO(porter)" not in result.converted_text, result.converted_text

@@ -24,7 +24,7 @@ from porter.translate.functions import (
 from porter.rules.assign import INTERVAL_MAKERS
 from porter.translate.writes import batch_writes, is_sink_text
 from porter.translate.context import PandasCall, grouping_code
-from porter.translate.evaluate import Evaluator, Services
+from porter.translate.evaluate import Evaluator, Services, parts_current
 from porter.translate.values import (
     MISSING, Column, Frame, Grouped, Module, Opaque, PandasValue, Parts, Scalar, Value, fresh_token,
     is_pandas,
@@ -907,10 +907,7 @@ class _Walker:
             # whole result, its columns taken from it (parts.struct.field("1")); pandas computes
             # it when the name is changed in place or is read after its frame's name holds
             # other rows (the evaluator notes that)
-            frame_name = value.source.frame.code.text
-            same_frame = isinstance(env.get(frame_name), Frame) \
-                and env[frame_name].rows == value.source.frame.rows  # type: ignore[union-attr]
-            if same_frame and name not in self.services.changed_in_place \
+            if parts_current(value, env) and name not in self.services.changed_in_place \
                     and self.statement_key not in self.services.stale_series:
                 env[name] = replace(value, code=emit.atom(name), sites=(), bound=True,
                                     binding=self.statement_key)
@@ -918,7 +915,7 @@ class _Walker:
                 code = value.pandas
                 env[name] = PandasValue(emit.atom(name))
                 site = SiteDraft("series.str.expand", "handover", "todo", 0.0,
-                                 f"`{name}` is changed in place, or read after its frame's rows "
+                                 f"`{name}` is changed in place, or read after its text's frame "
                                  "changed: pandas computes it", *self.services.statement_lines)
                 return emit.layout_chain(code, indent, f"{name} = "), [*value.sites, site]
         elif isinstance(value, Grouped):

@@ -158,10 +158,7 @@ class Evaluator:
     def note_stale_parts(self, parts: Parts) -> None:
         """str.extract's frame kept in a name, read where its frame's name holds other rows or
         its text column was overwritten: the next pass has pandas compute it where it is bound."""
-        source = parts.source
-        frame = self.env.get(source.frame.code.text)
-        if not (isinstance(frame, Frame) and frame.rows == source.frame.rows
-                and all(frame.version(c) == v for c, v in source.versions)):
+        if not parts_current(parts, self.env):
             self.services.stale_series.add(parts.binding)  # type: ignore[arg-type]
 
     def _eval_SimpleString(self, node: cst.SimpleString) -> Value:
@@ -680,6 +677,17 @@ class Evaluator:
             # built on a value handed over to pandas: a pandas object, never a plain scalar
             return PandasValue(Code(text, precedence(node)), sites=tuple(rewriter.sites))
         return Opaque(Code(text, precedence(node)), sites=tuple(rewriter.sites))
+
+
+def parts_current(parts: Parts, env: Mapping[str, Value]) -> bool:
+    """Whether the name of the frame str.extract's text came from (or of the Series, for a
+    Series of its own) still holds those rows, with the text column unchanged."""
+    source = parts.source
+    held = env.get(source.frame.code.text)
+    frame = held.frame if isinstance(held, Column) else held
+    return isinstance(frame, Frame) and frame.rows == source.frame.rows \
+        and frame.code.text == source.frame.code.text \
+        and all(frame.version(c) == v for c, v in source.versions)
 
 
 @dataclass(frozen=True)
