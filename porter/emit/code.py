@@ -189,8 +189,8 @@ def layout_chain(code: Code, indent: str, prefix: str, suffix: str = "") -> str:
     if "\n" in code.text and not _parses(code.text):
         code = Code(f"({code.text})")
     one_line = f"{prefix}{code.text}{suffix}"
-    if len(indent) + len(one_line) <= LINE_LENGTH:
-        return one_line
+    if len(indent) + len(one_line) <= LINE_LENGTH and one_line.count(".collect()") <= 1:
+        return one_line  # (two plans run on one line are laid out one per line)
     # a chain is laid out one step per line; a single call on a plain name (df.with_columns)
     # gets one argument per line instead
     if code.base is None or not code.steps or (len(code.steps) == 1 and "(" not in code.base):
