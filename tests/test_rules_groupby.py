@@ -404,6 +404,8 @@ APPLY_CASES = {
     "sort=False and dropna=False": ('df.groupby("shop", sort=False, dropna=False)'
                                     '.apply(counts).reset_index()'),
     "as_index=False": 'df.groupby("shop", as_index=False).apply(summary)',
+    "group_keys=False changes nothing for one row per group": (
+        'df.groupby("shop", group_keys=False).apply(summary)'),
     "two keys": 'df.groupby(["zone", "shop"]).apply(lambda g: g["qty"].mean()).reset_index()',
     "masks: != keeps missing, ~ of a NaN comparison, isin, isna": (
         'df.groupby("shop").apply(lambda g: pd.Series({'
@@ -522,3 +524,11 @@ def test_groupby_apply_with_unknown_column_types(tmp_path, monkeypatch) -> None:
                      'result = d.groupby("k").apply(lambda g: g["v"].sum())\n')
     assert any(s.key == "groupby.apply" and s.status == "todo" and "--data" in s.message
                for s in result.sites)
+
+
+def test_group_keys_reaches_the_apply_handed_to_pandas() -> None:
+    # a frame per group: group_keys=False keeps the rows' own labels, not the keys (pandas 3.1)
+    source = APPLY + 'result = df.groupby("shop", group_keys=False).apply(lambda g: g.head(1))\n'
+    text = check_todo(source, "groupby.apply")
+    assert 'groupby("shop", group_keys=False)' in text
+    differential(source)

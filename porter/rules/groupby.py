@@ -62,14 +62,17 @@ def grouped_of(call: PandasCall) -> Grouped:
 
 @rule("frame.groupby")
 def groupby(call: PandasCall, ctx: RuleContext) -> Value:
-    """df.groupby(keys, sort, dropna, as_index) -> a pending group_by.
+    """df.groupby(keys, sort, dropna, as_index, group_keys) -> a pending group_by.
 
     Handles: rows with a missing key are dropped (dropna=True); keys sorted (sort=True) or in
-    order of first appearance (sort=False); keys as the index (as_index=True).
+    order of first appearance (sort=False); keys as the index (as_index=True); group_keys
+    (only apply reads it, and only for a result like-indexed to each group: porter keeps it
+    for the apply it hands to pandas).
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
-    ctx.reject_unknown(call, "by", "sort", "dropna", "as_index", "observed", positional=1)
+    ctx.reject_unknown(call, "by", "sort", "dropna", "as_index", "observed", "group_keys",
+                       positional=1)
     by = call.arg("by", 0)
     if isinstance(by, Column) and by.name is not None and by.code.text == emit.col(by.name).text:
         keys: list[str] = [by.name]
@@ -86,7 +89,8 @@ def groupby(call: PandasCall, ctx: RuleContext) -> Value:
     return Grouped(frame.code, frame=frame, keys=tuple(keys),
                    sort=bool(call.const("sort", None, True)),
                    dropna=bool(call.const("dropna", None, True)),
-                   as_index=bool(call.const("as_index", None, True)))
+                   as_index=bool(call.const("as_index", None, True)),
+                   group_keys=bool(call.const("group_keys", None, True, kinds=(bool,))))
 
 
 @rule("groupby.getitem")
@@ -96,12 +100,14 @@ def groupby_getitem(call: PandasCall, ctx: RuleContext) -> Value:
     key = call.args[0]
     if isinstance(key, Opaque) and isinstance(key.const, str):
         return Grouped(grouped.code, frame=grouped.frame, keys=grouped.keys, sort=grouped.sort,
-                       dropna=grouped.dropna, as_index=grouped.as_index, selection=(key.const,),
-                       single=True, prepared=grouped.prepared)
+                       dropna=grouped.dropna, as_index=grouped.as_index,
+                       group_keys=grouped.group_keys, selection=(key.const,), single=True,
+                       prepared=grouped.prepared)
     if isinstance(key, Opaque) and isinstance(key.const, list):
         return Grouped(grouped.code, frame=grouped.frame, keys=grouped.keys, sort=grouped.sort,
                        dropna=grouped.dropna, as_index=grouped.as_index,
-                       selection=tuple(key.const), single=False, prepared=grouped.prepared)
+                       group_keys=grouped.group_keys, selection=tuple(key.const), single=False,
+                       prepared=grouped.prepared)
     raise Unsupported("selecting group columns by a computed key")
 
 

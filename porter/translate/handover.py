@@ -89,6 +89,8 @@ def to_pandas(value: Value) -> Code:
             args["dropna"] = False
         if not value.as_index:
             args["as_index"] = False
+        if not value.group_keys:
+            args["group_keys"] = False
         code = to_pandas(value.frame).method("groupby", emit.names_arg(value.keys), **args)
         if value.selection is not None:
             code = code.index(value.selection[0] if value.single else list(value.selection))

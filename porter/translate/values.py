@@ -96,6 +96,8 @@ class Grouped(Value):
     sort: bool = field(default=True, kw_only=True)
     dropna: bool = field(default=True, kw_only=True)
     as_index: bool = field(default=True, kw_only=True)
+    # group_keys=False: only apply reads it (a result like-indexed to the groups keeps no keys)
+    group_keys: bool = field(default=True, kw_only=True)
     selection: tuple[str, ...] | None = field(default=None, kw_only=True)
     single: bool = field(default=False, kw_only=True)
     prepared: bool = field(default=False, kw_only=True)  # `code` is already a LazyGroupBy
