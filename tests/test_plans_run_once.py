@@ -18,6 +18,7 @@ import pytest
 
 from corpus_check import CORPUS, cases
 from porter.api import convert_file
+from porter.model import Options
 
 COUNTING = r'''
 import collections, json, re, runpy, sys
@@ -66,6 +67,15 @@ def test_each_input_file_is_read_once(name, tmp_path):
     scans = json.loads((work / "scans.json").read_text(encoding="utf-8"))
     twice = {path: n for path, n in scans.items() if n > 1}
     assert not twice, f"input files read more than once: {twice}"
+
+
+@pytest.mark.parametrize("name", cases())
+def test_no_line_runs_two_plans(name):
+    # a reader sees where each plan runs: at most one .collect() per line of the output
+    options = Options(data_dir=str(CORPUS / name))
+    text = convert_file(CORPUS / name / f"{name}.py", options=options).converted_text
+    crowded = [line for line in text.splitlines() if line.count(".collect()") > 1]
+    assert not crowded, crowded
 
 
 # -- the materialisation model on small scripts (docs/design.md) --------------------------------
