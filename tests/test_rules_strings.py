@@ -120,6 +120,15 @@ def test_ports(before: str, expected: str) -> None:
     check_ports(FRAME + f'df["out"] = {before}\n', expected)
 
 
+def test_a_pattern_constant_keeps_its_name() -> None:
+    # Polars reads it as Python does: the script's name for it stays; a final $ is rewritten
+    text = check_ports(FRAME + 'PAT = r"(\\w)\\.(\\w)"\nEND = r"(\\w)$"\n'
+                       'df["a"] = df["s"].str.extract(PAT)[1]\n'
+                       'df["b"] = df["s"].str.extract(END, expand=False)\n'
+                       'df["n"] = df["s"].str.count(PAT)\n', 'str.extract(PAT, 2)')
+    assert "str.count_matches(PAT)" in text and 'str.extract("(\\\\w)\\\\n?$", 1)' in text, text
+
+
 TODOS = [
     pytest.param('df["s"].str.extractall(r"(\\w)")', "series.str.extractall", id="extractall"),
     pytest.param('df["s"].str.cat(sep="|")', "series.str.cat", id="cat"),

@@ -557,15 +557,19 @@ def capitalize(call: PandasCall, ctx: RuleContext) -> Value:
     return _string(column, emit.binop(first, "+", rest))
 
 
-def _pattern(call: PandasCall, ctx: RuleContext, flags_position: int, *, test: bool) -> tuple[str, re.Pattern[str]]:
-    """The pattern argument (position 0) and `flags=` as one Polars pattern, and the pattern as
-    Python compiles it."""
+def _pattern(call: PandasCall, ctx: RuleContext, flags_position: int, *,
+             test: bool) -> tuple[str | Code, re.Pattern[str]]:
+    """The pattern argument (position 0) and `flags=` as one Polars pattern (the script's own
+    constant when Polars reads it as it is), and the pattern as Python compiles it."""
     pat = call.const("pat", 0)
     if not isinstance(pat, str):
         raise ctx.todo("a pattern that is not text (a compiled regex?)")
     flags = regex_flags(call, flags_position)
-    source = polars_regex(pat, flags, ctx, test=test)
-    return inline_flags(flags) + source, re.compile(pat, flags)
+    source = inline_flags(flags) + polars_regex(pat, flags, ctx, test=test)
+    written = call.arg("pat", 0)
+    if source == pat and written.code.text.isidentifier():
+        return written.code, re.compile(pat, flags)  # TAG_PATTERN stays TAG_PATTERN
+    return source, re.compile(pat, flags)
 
 
 def _may_match_empty(compiled: re.Pattern[str]) -> bool:
@@ -619,7 +623,8 @@ def findall(call: PandasCall, ctx: RuleContext) -> Value:
 def _again_in_pandas(call: PandasCall, column: Column) -> Code:
     """The call made by pandas on the pandas Series (for code that needs pandas' DataFrame)."""
     node = call.node
-    assert isinstance(node, cst.Call)
+    if not isinstance(node, cst.Call):
+        raise Unsupported("the frame of parts is made outside a call porter can write again")
     empty = cst.Module(body=[])
     args = ", ".join(empty.code_for_node(a.with_changes(comma=cst.MaybeSentinel.DEFAULT))
                      for a in node.args)
