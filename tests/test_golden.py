@@ -144,3 +144,17 @@ def test_polars_import_added_once_and_pandas_import_removed_when_unused(conversi
                     for a in n.names if a.name in ("pandas", "modin.pandas")}
         used = {n.id for n in ast.walk(tree) if isinstance(n, ast.Name)}
         assert imported <= used, f"{name}: unused pandas import kept"
+
+
+def test_numpy_names_the_conversion_no_longer_uses_are_not_imported(conversions):
+    # importing numpy costs time and memory; a name the original did not use either stays
+    for name, result in conversions.items():
+        before = ast.parse(result.original_text)
+        after = ast.parse(result.converted_text)
+        used_before = {n.id for n in ast.walk(before) if isinstance(n, ast.Name)}
+        used_after = {n.id for n in ast.walk(after) if isinstance(n, ast.Name)}
+        imported = {a.asname or a.name for n in ast.walk(after) if isinstance(n, (ast.Import, ast.ImportFrom))
+                    and (isinstance(n, ast.Import) or n.module == "numpy") for a in n.names
+                    if isinstance(n, ast.ImportFrom) or a.name == "numpy"}
+        stale = {i for i in imported if i in used_before and i not in used_after}
+        assert not stale, f"{name}: numpy names imported but no longer used: {stale}"

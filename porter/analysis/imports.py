@@ -18,6 +18,7 @@ class ImportFacts:
 
     names: dict[str, str] = field(default_factory=dict)
     pandas_imports: list[cst.CSTNode] = field(default_factory=list)
+    numpy_imports: list[cst.CSTNode] = field(default_factory=list)
     has_polars_as_pl: bool = False
 
     @property
@@ -51,6 +52,8 @@ class _ImportCollector(cst.CSTVisitor):
                 self.facts.names[module] = canonical
             if canonical == "pandas":
                 self.facts.pandas_imports.append(node)
+            elif canonical == "numpy" and node not in self.facts.numpy_imports:
+                self.facts.numpy_imports.append(node)
 
     def visit_ImportFrom(self, node: cst.ImportFrom) -> None:
         if node.module is None or node.relative:
@@ -64,6 +67,8 @@ class _ImportCollector(cst.CSTVisitor):
             self.facts.names[local] = f"{canonical}.{name}"
         if canonical == "pandas":
             self.facts.pandas_imports.append(node)
+        elif canonical == "numpy":
+            self.facts.numpy_imports.append(node)
 
 
 def _asname(alias: cst.ImportAlias) -> str:

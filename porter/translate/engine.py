@@ -115,7 +115,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     body, _ = walker.block(module.body, _initial_env(facts), module.default_indent, "")
     new_module = module.with_changes(body=body)
     if walker.sites:
-        new_module = import_edits.fix_imports(new_module, facts)
+        new_module = import_edits.fix_imports(new_module, facts, module)
     return Translation(new_module, _unique(walker.sites))
 
 

@@ -41,11 +41,17 @@ def names_used(module: cst.Module) -> set[str]:
     return visitor.names
 
 
-def fix_imports(module: cst.Module, facts: ImportFacts) -> cst.Module:
+def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | None = None) -> cst.Module:
+    """Polars imported, pandas' names no longer used dropped, and numpy's names the original
+    used but the conversion no longer does (np.where became pl.when): importing numpy costs
+    time and memory. An import the original did not use either stays as the user wrote it."""
     used = names_used(module)
     needs_polars = "pl" in used and not facts.has_polars_as_pl
     pandas_names = {n for n, q in facts.names.items() if q == "pandas" or q.startswith("pandas.")}
     unused = pandas_names - used
+    numpy_names = {n for n, q in facts.names.items() if q == "numpy" or q.startswith("numpy.")}
+    used_before = names_used(original) if original is not None else numpy_names
+    unused_numpy = (numpy_names & used_before) - used
 
     body: list[cst.CSTNode] = []
     inserted = not needs_polars
@@ -63,6 +69,12 @@ def fix_imports(module: cst.Module, facts: ImportFacts) -> cst.Module:
                 if not inserted:
                     body.append(cst.SimpleStatementLine(body=[_polars_import()]))
                     inserted = True
+            continue
+        if unused_numpy and isinstance(stmt, cst.SimpleStatementLine) and len(stmt.body) == 1 \
+                and any(stmt.body[0] is imp for imp in facts.numpy_imports):
+            kept = _without_names(stmt.body[0], unused_numpy)  # type: ignore[arg-type]
+            if kept is not None:
+                body.append(stmt.with_changes(body=[kept]))
             continue
         body.append(stmt)
     if not inserted:
