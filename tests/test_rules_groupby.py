@@ -421,6 +421,11 @@ APPLY_CASES = {
         'df.groupby("shop").apply(lambda g: pd.Series({'
         '"a": 1.0 if g["qty"].max() > 1.5 else 0.0, "b": 1.0 if g["qty"].max() != 2.0 else 0.0, '
         '"c": 1.0 if not g["qty"].max() > 1.5 else 0.0}))'),
+    "rows compared with a value of their group, NaN != NaN": (
+        'df.groupby("shop").apply(lambda g: pd.Series({"above": g.loc[g["n"] > g["n"].mean(), "n"].sum(), '
+        '"q_above": g[g["qty"] >= g["qty"].mean()]["n"].count(), '
+        '"nan_ne": 1.0 if g.loc[g["zone"] == "loge", "qty"].max() != g.loc[g["zone"] == "loge", "qty"].min() '
+        'else 0.0, "rows": len(g)}))'),
     "0 / 0 is missing": 'df.groupby("shop").apply(lambda g: g.loc[g["zone"] == "loge", "n"].sum() / g.loc[g["zone"] == "loge", "n"].count())',
 }
 

@@ -530,8 +530,9 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
 # The function is not run per group: its body (a lambda, or the script's own function made one
 # expression by body_expression) is read once, with the parameter standing for any group, and
 # each value it computes becomes an expression of group_by().agg(). What the body may contain:
-# columns of the group (g["c"], g.c, g.loc[mask, "c"], g[mask]["c"]), masks comparing a column
-# with a constant (==, !=, <, ..., & | ~, isin, isna, notna), the reductions below, len(g),
+# columns of the group (g["c"], g.c, g.loc[mask, "c"], g[mask]["c"], row arithmetic of them),
+# masks comparing a column with a constant or a value of the group (==, !=, <, ..., & | ~, isin,
+# isna, notna), the reductions below, len(g),
 # float() / int() / abs(), + - * / between them, comparisons and `a if cond else b`, numbers and
 # np.nan, and at the top pd.Series({"name": value, ...}) or one value.
 #
@@ -728,19 +729,25 @@ class _BodyReader:
             column_first = isinstance(left, _GroupColumn)
             column = self.unmasked(left if column_first else right, node)
             other_node = right_node if column_first else node.left
-            const = None if self.uses_param(other_node) else self.name_of(other_node)
-            if not isinstance(const, (str, int, float)) or (
-                    isinstance(const, float) and const != const):
-                raise self.fail("compares a column with something other than a constant "
-                                "(text or a number)")
-            code, other = column.code, emit.lit(const)
+            other_value = right if column_first else left
+            code = column.code
+            if isinstance(other_value, _Agg) and not other_value.is_test:
+                other = other_value.code  # one value per group, met by every row
+            else:
+                const = None if self.uses_param(other_node) else self.name_of(other_node)
+                if not isinstance(const, (str, int, float)) or (
+                        isinstance(const, float) and const != const):
+                    raise self.fail("compares a column with something other than a constant "
+                                    "(text or a number) or a value of the group")
+                other = emit.lit(const)
             if op == "!=":  # pandas: a missing value differs from everything
-                return _Mask(code.method("ne_missing", other), False)
+                return _Mask(emit.binop(code, "!=", other).method("fill_null", True), False)
             pair = (code, other) if column_first else (other, code)
             return _Mask(emit.binop(pair[0], op, pair[1]), True)
         a, b = self.agg(node.left), self.agg(right_node)
         if op == "!=":  # Python: NaN != x is True; Polars' null would take the other branch
-            return _Agg(a.code.method("ne_missing", b.code), None, is_test=True)
+            return _Agg(emit.binop(a.code, "!=", b.code).method("fill_null", True), None,
+                        is_test=True)
         return _Agg(emit.binop(a.code, op, b.code), None, is_test=True)
 
     def _BinaryOperation(self, node: cst.BinaryOperation) -> Any:
