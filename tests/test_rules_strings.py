@@ -609,3 +609,14 @@ letters = parts[0]
 digits = parts[1]
 """, "letters", "digits")
     assert "TODO(porter)" not in result.converted_text, result.converted_text
+
+
+def test_lists_handed_to_pandas_are_lists() -> None:
+    # pandas is the reference implementation: str.split holds Python lists (Polars hands numpy
+    # arrays over), so a function written for lists sees lists
+    result = differential(TAGS + """
+df["parts"] = df["code"].str.split("-")
+df["n"] = df["parts"].apply(lambda p: len(p) if isinstance(p, list) else -1)
+result = df
+""")
+    assert '.map(list, na_action="ignore")' in result.converted_text, result.converted_text

@@ -79,6 +79,9 @@ def to_pandas(value: Value) -> Code:
                     .method("cast", emit.atom("pl.String")).method("to_pandas").method("astype", "category"))
         else:
             code = series_frame(value).method("collect").method("to_series").method("to_pandas")
+            if value.dtype is not None and value.dtype.startswith("list["):
+                # str.split's Python lists: Polars hands each over as a numpy array
+                code = code.method("map", emit.atom("list"), na_action="ignore")
         # a Series pandas made without a name has none (Polars calls it "0")
         return code.method("rename", None) if value.name is None else code
     if isinstance(value, Grouped):
