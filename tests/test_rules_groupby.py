@@ -423,7 +423,7 @@ APPLY_CASES = {
         '"c": 1.0 if not g["qty"].max() > 1.5 else 0.0}))'),
     "rows compared with a value of their group, NaN != NaN": (
         'df.groupby("shop").apply(lambda g: pd.Series({"above": g.loc[g["n"] > g["n"].mean(), "n"].sum(), '
-        '"q_above": g[g["qty"] >= g["qty"].mean()]["n"].count(), '
+        '"q_above": g[g["qty"] >= g["qty"].mean()]["n"].count(), "n_over_q": g.loc[g.n > g.qty, "n"].sum(), '
         '"nan_ne": 1.0 if g.loc[g["zone"] == "loge", "qty"].max() != g.loc[g["zone"] == "loge", "qty"].min() '
         'else 0.0, "rows": len(g)}))'),
     "0 / 0 is missing": 'df.groupby("shop").apply(lambda g: g.loc[g["zone"] == "loge", "n"].sum() / g.loc[g["zone"] == "loge", "n"].count())',

@@ -733,6 +733,8 @@ class _BodyReader:
             code = column.code
             if isinstance(other_value, _Agg) and not other_value.is_test:
                 other = other_value.code  # one value per group, met by every row
+            elif isinstance(other_value, _GroupColumn):
+                other = self.unmasked(other_value, node).code  # row by row
             else:
                 const = None if self.uses_param(other_node) else self.name_of(other_node)
                 if not isinstance(const, (str, int, float)) or (
