@@ -141,3 +141,32 @@ def test_a_hand_over_after_a_filter_says_the_labels_are_renumbered():
         '''))
     messages = [s.message for s in result.sites if s.key == "handover.unknown_code"]
     assert len(messages) == 2 and "renumbered" in messages[0] and "renumbered" not in messages[1]
+
+
+def test_two_calls_of_one_loader_are_two_frames(tmp_path):
+    # both calls once returned frames with the same rows, so b["x"] was taken for a's own
+    # column: a["d"] = pl.col("x") copied a's values
+    (tmp_path / "later.csv").write_text(CARGO.replace("5.0", "50.0").replace("7.25", "72.5"),
+                                        encoding="utf-8")
+    both('''
+        import pandas as pd
+        def load(path):
+            return pd.read_csv(path)
+        first = load("cargo.csv")
+        later = load("later.csv")
+        first["later_tons"] = later["tons"]
+        ''', "first")
+
+
+def test_counting_the_rows_of_loaded_files_reads_no_columns():
+    # a loader's frames hold a file's rows: counting them is not a reason to keep them
+    text = both('''
+        import pandas as pd
+        def load(path, tag):
+            sheet = pd.read_csv(path)
+            return sheet.assign(tag=tag)
+        both_halves = pd.concat([load("cargo.csv", "a"), load("cargo.csv", "b")], ignore_index=True)
+        n = len(both_halves)
+        heavy = both_halves[both_halves["tons"] > 1]
+        ''', "n", "heavy")
+    assert "both_halves = pl.concat" in text and ".collect().lazy()" not in text, text

@@ -26,7 +26,7 @@ from porter.translate.rewrite import BINARY_OPS, ChildRewriter, precedence
 from porter.translate.context import PandasCall, RuleContext, Unsupported, derived_column
 from porter.translate.values import (
     MISSING, Accessor, BoundMethod, Column, Frame, Grouped, Indexer, Items, Module, Opaque,
-    PandasValue, Parts, Scalar, Value, is_pandas,
+    PandasValue, Parts, Scalar, Value, fresh_token, is_pandas,
 )
 
 COMPARE_OPS = {
@@ -64,6 +64,8 @@ class LocalFunction:
     # the frame parameter whose column the function returns unchanged in rows (`return
     # df["kg"] * 2`): it returns that expression, evaluated in the caller's frame
     returns_column_of: str | None = None
+    # every frame it returns holds the rows of a file read (Polars counts them from the file)
+    returns_file_rows: bool = False
 
 
 @dataclass
@@ -433,7 +435,12 @@ class Evaluator:
             parts.append(f"{arg.keyword.value}={text}" if arg.keyword else text)
         code = Code(f"{self.source(node.func)}({', '.join(parts)})")
         if isinstance(function.returns, Frame):
-            return replace(function.returns, code=code, sites=tuple(sites))
+            # each call returns rows of its own: two calls (load("a.csv"), load("b.csv")) are
+            # two frames, never columns of one another
+            rows = fresh_token()
+            if function.returns_file_rows:
+                self.services.file_rows.add(rows)
+            return replace(function.returns, code=code, sites=tuple(sites), rows=rows)
         returned = function.returns
         if isinstance(returned, Column) and (function.column_params or function.returns_column_of):
             # the function returns an expression: of the columns passed, or of the frame passed

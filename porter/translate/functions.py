@@ -180,7 +180,10 @@ def learn_functions(services: Services, returns: dict[str, list[Value]],
                              dtypes=dtypes, index=index)
         elif returned and all(isinstance(r, (Column, Scalar)) for r in returned):
             template = returned[0]
+        file_rows = bool(returned) and all(isinstance(r, Frame) and r.rows in services.file_rows
+                                           for r in returned)
         updated[name] = replace(function, frame_params=frozenset(frame_params), returns=template,
+                                returns_file_rows=file_rows,
                                 param_schemas=tuple(schemas), param_consts=tuple(consts),
                                 param_choices=tuple(choices), returns_column_of=returns_column_of,
                                 **column_changes)
