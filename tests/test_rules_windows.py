@@ -8,8 +8,10 @@ from __future__ import annotations
 
 import pytest
 
+import polars as pl
+
 from rule_checks import check_ports, check_todo, check_unchanged
-from support import convert, differential
+from support import convert, differential, run
 
 FRAME = '''
 import numpy as np
@@ -162,13 +164,135 @@ def test_group_windows_on_an_empty_frame() -> None:
 
 
 @pytest.mark.parametrize("expr", [
-    'df.groupby("k")["v"].transform(lambda s: s - s.mean())',
     'df.groupby("k")["v"].transform(np.sum)',
     'df.groupby("k")[["v", "n"]].cumsum()',
     'df.groupby("k")["v"].cumsum(skipna=False)',
 ])
 def test_group_windows_porter_cannot_read_are_todos(expr: str) -> None:
     assert convert(GROUPED + f'df["w"] = {expr}\n').todos
+
+
+# -- more group windows: ffill / bfill, rank, pct_change, transform of a function ----------------
+
+# ties, NaN and None side by side, a group of one row, a group whose values are all missing,
+# unsorted keys, unicode keys and a missing key
+GROUPS = '''
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"v": [3.0, 1.0, np.nan, 3.0, None, 2.5, 5.0, 5.0, np.nan, 7.0, 1.0, 0.0],
+                   "n": [4, 2, 2, 7, 1, 0, 3, 3, 9, 0, 2, 0],
+                   "t": ["b", "a", "é", "a", None, "c", "b", "b", "a", "z", "ä", "a"],
+                   "k": ["a", "b", "a", "a", "b", None, "ünï", "ünï", "ünï", "ñ", "a", "b"],
+                   "g": ["x", "y", "x", None, "y", "x", "x", "y", "y", "y", "x", "y"]})
+df["f"] = df["v"] > 2
+'''
+ONE_GROUP_EMPTY = '''
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"v": [1.0], "n": [1], "t": ["a"], "k": ["a"], "g": ["x"]})
+df = df[df["n"] > 5]
+df["f"] = df["v"] > 2
+'''
+
+GROUP_WINDOWS = [
+    'df.groupby("k")["v"].ffill()', 'df.groupby("k")["v"].bfill()', 'df.groupby("k")["v"].ffill(limit=1)',
+    'df.groupby("g")["v"].bfill(1)', 'df.groupby("k")["t"].ffill()', 'df.groupby(["k", "g"])["v"].ffill()',
+    'df.groupby("k", dropna=False)["v"].ffill()', 'df.groupby("k")["n"].bfill()',
+    'df.groupby("k")["v"].rank()', 'df.groupby("k")["v"].rank(method="min")',
+    'df.groupby("k")["v"].rank(method="max", ascending=False)', 'df.groupby("k")["v"].rank(method="first")',
+    'df.groupby("k")["v"].rank(method="first", ascending=False)', 'df.groupby("k")["v"].rank(method="dense")',
+    'df.groupby("k")["v"].rank(pct=True)', 'df.groupby("k")["v"].rank(method="dense", pct=True)',
+    'df.groupby("g")["v"].rank(method="first", ascending=False, pct=True)', 'df.groupby("k")["n"].rank()',
+    'df.groupby("g")["t"].rank()', 'df.groupby("g")["f"].rank()', 'df.groupby("k", dropna=False)["v"].rank()',
+    'df.groupby("k")["v"].pct_change()', 'df.groupby("k")["n"].pct_change()',
+    'df.groupby("g")["v"].pct_change(periods=2)', 'df.groupby("g")["n"].pct_change(-1)',
+    'df.groupby("k")["v"].transform(lambda s: s - s.mean())',
+    'df.groupby("k")["v"].transform(lambda s: s / s.sum())',
+    'df.groupby("g")["n"].transform(lambda s: s / s.sum())',
+    'df.groupby("k")["v"].transform(lambda s: s.fillna(s.mean()))',
+    'df.groupby("k")["v"].transform(lambda s: s.fillna(s.median()))',
+    'df.groupby("k")["v"].transform(lambda s: (s - s.mean()) / s.std())',
+    'df.groupby("k")["v"].transform(lambda s: s.sum())',
+    'df.groupby("k")["v"].transform(lambda s: s.rolling(2, min_periods=1).mean())',
+    'df.groupby("g")["v"].transform(lambda s: s.cumsum() / 2)',
+    'df.groupby("g")["v"].transform(lambda s: s > s.mean())',
+    'df.groupby("g")["v"].transform(lambda s: s - df["v"].mean())',
+    'df.groupby("k", dropna=False)["v"].transform(lambda s: s - s.max())',
+    'df.groupby("k")["v"].transform(centred)',
+    'df.groupby("k")["v"].transform("rank")', 'df.groupby("k")["v"].transform("cumsum")',
+    'df.groupby("k")["v"].transform("ffill")', 'df.groupby("k")["v"].transform("shift", 1)',
+    'df.groupby("k")["v"].transform("cumcount")', 'df.groupby("k")["v"].transform("rank", method="dense")',
+    'df.groupby("k")["v"].transform("quantile", 0.9)', 'df.groupby("g")["n"].transform("quantile", q=0.25)',
+    'df.groupby("k")["v"].transform("pct_change")',
+]
+
+CENTRED = '''
+def centred(values):
+    """Distance from the group's mean."""
+    return values - values.mean()
+'''
+
+
+@pytest.mark.parametrize("frame", [pytest.param(GROUPS, id="ties and missing values"),
+                                   pytest.param(ONE_GROUP_EMPTY, id="no rows")])
+@pytest.mark.parametrize("expr", GROUP_WINDOWS)
+def test_more_group_windows_match_pandas(frame: str, expr: str) -> None:
+    result = differential(frame + CENTRED + f'df["w"] = {expr}\nresult = df\n')
+    assert not result.todos, result.converted_text
+
+
+def test_group_ranks_are_floats_as_in_pandas() -> None:
+    result = differential(GROUPS + 'r = df.groupby("k")["n"].rank(method="min")\n'
+                          'result = df.assign(r=r)\n')
+    assert 'pl.col("n").rank("min").cast(pl.Float64).over("k")' in result.converted_text
+    assert dict(run(result.converted_text)["result"].collect_schema())["r"] == pl.Float64
+
+
+def test_group_rank_percent_divides_exactly() -> None:
+    # 2.5 / 3 is 0.8333333333333334 in pandas; Polars multiplying by 1/3 gives ...333
+    result = differential('''
+import pandas as pd
+df = pd.DataFrame({"v": [1.0, 5.0, 5.0, 2.0], "k": ["b", "b", "b", "a"]})
+result = df.groupby("k")["v"].rank(pct=True).tolist()
+''')
+    assert run(result.converted_text)["result"][1] == 2.5 / 3
+
+
+@pytest.mark.parametrize("expr, fragment", [
+    ('df.groupby("k")["v"].ffill()', 'pl.when(pl.col("k").is_not_null()).then(pl.col("v").forward_fill().over("k"))'),
+    ('df.groupby("k")["v"].bfill(limit=2)', 'pl.col("v").backward_fill(limit=2).over("k")'),
+    ('df.groupby("k")["v"].rank(method="first", ascending=False)',
+     'pl.col("v").rank("ordinal", descending=True).cast(pl.Float64).over("k")'),
+    ('df.groupby("k")["v"].pct_change()', 'pl.col("v").pct_change().fill_nan(None).over("k")'),
+    ('df.groupby("k")["v"].transform(lambda s: s - s.mean())',
+     '(pl.col("v") - pl.col("v").mean()).fill_nan(None).over("k")'),
+    ('df.groupby("k")["v"].transform(lambda s: s.fillna(s.mean()))',
+     'pl.col("v").fill_null(pl.col("v").mean()).over("k")'),
+])
+def test_group_windows_port(expr: str, fragment: str) -> None:
+    check_ports(GROUPS + f'df["w"] = {expr}\n', fragment)
+
+
+@pytest.mark.parametrize("expr, key", [
+    ('df.groupby("k")["v"].rank(na_option="top")', "groupby.rank"),
+    ('df.groupby("k")["v"].ffill(limit=0)', "groupby.ffill"),
+    ('df.groupby("k")[["v", "n"]].ffill()', "groupby.ffill"),
+    ('df.groupby("k")["v"].transform(lambda s: s.max() - s.min())', "groupby.transform"),
+    ('df.groupby("k")["v"].transform(lambda s: s.sort_values())', "groupby.transform"),
+    ('df.groupby("k")["v"].transform("quantile", 0.5, interpolation="nearest")', "groupby.transform"),
+])
+def test_group_window_forms_porter_cannot_read_are_todos(expr: str, key: str) -> None:
+    check_todo(GROUPS + f'df["w"] = {expr}\n', key)
+
+
+@pytest.mark.parametrize("expr", [
+    # pandas aligns df["n"] on each group's labels: no expression of the group's column
+    'df.groupby("k")["v"].transform(lambda s: s - df["n"])',
+    'df.groupby("k")["v"].transform(lambda s, d: s - d)',  # pandas raises
+])
+def test_transform_functions_of_more_than_the_group_are_todos(expr: str) -> None:
+    result = convert(GROUPS + f'df["w"] = {expr}\n')
+    assert "groupby.transform" in {s.key for s in result.todos}, result.converted_text
 
 
 # -- rolling and expanding windows ---------------------------------------------------------------

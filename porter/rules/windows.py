@@ -8,6 +8,8 @@ in between), so the expression sees the rows in pandas' order.
 
 from __future__ import annotations
 
+from dataclasses import replace
+
 import libcst as cst
 
 from porter.emit import code as emit
@@ -18,7 +20,9 @@ from porter.rules.groupby import agg_expr
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_of, derived_column,
 )
-from porter.translate.values import Accessor, Column, Grouped, Opaque, Value
+from porter.translate.values import (
+    Accessor, Column, Frame, Grouped, Opaque, Scalar, Value, fresh_token,
+)
 
 CUMULATIVE = {"cumsum": "cum_sum", "cumprod": "cum_prod", "cummax": "cum_max", "cummin": "cum_min"}
 
@@ -88,18 +92,29 @@ TRANSFORMS = ("sum", "mean", "median", "min", "max", "std", "var", "count", "nun
               "last", "size")
 
 
-def _window(grouped: Grouped, expr: Code, missing: Code | None = None) -> Code:
-    """`expr` computed per group, on every row of its group, in the frame's row order. pandas
-    (dropna=True) gives rows with a missing key a missing value (`missing` where pandas fills
-    them, as shift's fill_value); Polars would make them a group."""
+def _over(grouped: Grouped, expr: Code) -> Code:
+    return expr.method("over", *grouped.keys)
+
+
+def _keys_present(grouped: Grouped) -> Code:
+    """Rows whose every key is present: the rows pandas (dropna=True) puts in a group."""
     keys = [emit.col(k) for k in grouped.keys]
-    over = expr.method("over", *grouped.keys)
-    if not grouped.dropna:
-        return over
     present = keys[0].method("is_not_null")
     for key in keys[1:]:
         present = emit.binop(present, "&", key.method("is_not_null"))
-    return emit.when(present, over, missing)
+    return present
+
+
+def _window(grouped: Grouped, expr: Code, missing: Code | None = None, *,
+            over: Code | None = None) -> Code:
+    """`expr` computed per group, on every row of its group, in the frame's row order (`over`:
+    an expression made of windows already). pandas (dropna=True) gives rows with a missing key
+    a missing value (`missing` where pandas fills them, as shift's fill_value); Polars would
+    make them a group."""
+    windowed = over if over is not None else _over(grouped, expr)
+    if not grouped.dropna:
+        return windowed
+    return emit.when(_keys_present(grouped), windowed, missing)
 
 
 def _selected(call: PandasCall) -> tuple[Grouped, Column]:
@@ -118,14 +133,39 @@ def _selected(call: PandasCall) -> tuple[Grouped, Column]:
 
 @rule("groupby.transform")
 def group_transform(call: PandasCall, ctx: RuleContext) -> Value:
-    """df.groupby(keys)[col].transform("sum" | "mean" | ...) -> the aggregation .over(keys).
+    """df.groupby(keys)[col].transform("sum" | "mean" | ...) -> the aggregation .over(keys);
+    transform("cumsum" | "rank" | "ffill" | "shift", ...) -> that window .over(keys);
+    transform(lambda s: s - s.mean()) -> the lambda's expression of the column .over(keys).
 
     Handles: every row gets its group's value, in the frame's order; a missing key gives a
-    missing value (dropna=True), missing values are skipped as pandas skips them.
-    Caveats: functions and lambdas are TODOs; an int column whose keys have a missing value is
+    missing value (dropna=True), missing values are skipped as pandas skips them; a function
+    (a lambda or the script's own def) whose body is one expression of the group's column,
+    made of reductions, element-wise operations and windows, is evaluated once for a group and
+    the whole expression computed per group (a reduction is broadcast to the group's rows, as
+    pandas broadcasts a scalar result).
+    Caveats: numpy functions, a body that reads anything but the group's column (another
+    column, the frame, its labels), and a body that is only reductions combined by Python
+    operators (s.max() - s.min()) are TODOs; an int column whose keys have a missing value is
     float in pandas and stays integer in Polars (the values match).
     """
     grouped, column = _selected(call)
+    function = call.arg("func", 0)
+    if isinstance(function, Opaque) and isinstance(function.const, str) \
+            and function.const in GROUP_WINDOWS:
+        # the window method by name, with the rest of the arguments
+        rest = PandasCall(grouped, function.const, call.args[1:],
+                          {k: v for k, v in call.kwargs.items() if k != "func"}, call.node)
+        return GROUP_WINDOWS[function.const](rest, ctx)
+    if isinstance(function, Opaque) and function.const == "quantile":
+        ctx.reject_unknown(call, "func", "q", "interpolation", positional=2)
+        q = call.const("q", 1, 0.5, kinds=(int, float))
+        if call.const("interpolation", None, "linear", kinds=(str,)) != "linear" or not 0 <= q <= 1:
+            raise Unsupported("quantile with another interpolation or outside 0..1")
+        _numeric(column, ctx)
+        expr = column.code.method("quantile", q, "linear")
+        return derived_column(column, _window(grouped, expr), dtype="float")
+    if isinstance(function, Opaque) and not function.is_const:
+        return _transform_function(call, grouped, column, function, ctx)
     ctx.reject_unknown(call, "func", positional=1)
     how = call.const("func", 0, None, kinds=(str,))
     if how not in TRANSFORMS:
@@ -133,6 +173,47 @@ def group_transform(call: PandasCall, ctx: RuleContext) -> Value:
     expr = emit.pl("len") if how == "size" else agg_expr(column.code, how, column.dtype)
     dtype = "int" if how in ("count", "nunique", "size") else \
         "float" if how in ("mean", "median", "std", "var") else column.dtype
+    return derived_column(column, _window(grouped, expr), dtype=dtype)
+
+
+# the group's frame inside a transform function: code that reads it as a frame (a collected
+# reduction, a filter) names it, and is not an expression of the group
+GROUP_FRAME = "_porter_group"
+
+
+def _transform_function(call: PandasCall, grouped: Grouped, column: Column, function: Opaque,
+                        ctx: RuleContext) -> Value:
+    """transform(f): f's body evaluated once with its parameter standing for the group's
+    column, over a frame of its own rows (the group's), and computed per group by .over()."""
+    ctx.reject_unknown(call, "func", positional=1)
+    if isinstance(function.node, cst.Lambda):
+        params = function.node.params
+        if len(params.params) != 1 or params.star_arg not in (None, cst.MaybeSentinel.DEFAULT) \
+                or params.kwonly_params or params.star_kwarg or params.posonly_params:
+            raise Unsupported("a lambda that does not take exactly the group's values")
+        param, body = params.params[0].name.value, function.node.body
+    else:
+        named = function_value(call, function, ctx)
+        if named is None:
+            raise Unsupported("a function porter cannot read: write it as an expression .over(keys)")
+        body = body_expression(named)
+        param = named.params.params[0].name.value
+    # the group: the frame's columns, rows of their own (a Series of another frame in the body
+    # is pandas' index alignment, a TODO), labels that are not 0..n-1
+    group = replace(grouped.frame, code=emit.atom(GROUP_FRAME), rows=fresh_token(),
+                    labels_intact=False, sites=())
+    values = column_of(group, column.name or "")
+    result = _checked(ctx.evaluate(body, {param: values}), ctx)
+    if isinstance(result, Scalar) and result.agg is not None and result.agg.frame.rows == group.rows:
+        expr, dtype = result.agg.code, result.agg.dtype  # one value broadcast to the group
+    elif isinstance(result, Column) and result.frame.rows == group.rows and not result.element:
+        expr, dtype = ctx.bool_expr(result, group), result.dtype
+    else:
+        raise Unsupported("the function's result is not one expression of the group's column "
+                          "(reductions, element-wise operations and windows of it)")
+    if GROUP_FRAME in expr.text or (result.refs if isinstance(result, Column) else {column.name}) \
+            - {column.name}:
+        raise Unsupported("the function reads the group as a frame (a collected value, a filter)")
     return derived_column(column, _window(grouped, expr), dtype=dtype)
 
 
@@ -193,6 +274,89 @@ def group_cumcount(call: PandasCall, ctx: RuleContext) -> Value:
         position = emit.binop(emit.binop(emit.pl("len"), "-", 1), "-", position)
     base = column_of(grouped.frame, grouped.keys[0])
     return derived_column(base, _window(grouped, position), dtype="int", name=None)
+
+
+@rule("groupby.ffill", "groupby.bfill")
+def group_fill(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.groupby(keys)[col].ffill(limit) / bfill(limit) -> .forward_fill(limit).over(keys) /
+    .backward_fill(limit).over(keys).
+
+    Handles: values are carried only within their group, at most `limit` rows; a missing key
+    gives a missing value (dropna=True), a missing key is a group of its own with dropna=False.
+    """
+    grouped, column = _selected(call)
+    ctx.reject_unknown(call, "limit", positional=1)
+    limit = call.const("limit", 0, None, kinds=(int,))
+    if limit is not None and limit < 1:
+        raise Unsupported(f"limit={limit} (pandas fills nothing or raises)")
+    method = "forward_fill" if call.name == "ffill" else "backward_fill"
+    expr = column.code.method(method, **({"limit": limit} if limit is not None else {}))
+    return derived_column(column, _window(grouped, expr), dtype=column.dtype)
+
+
+# pandas' rank methods by their Polars names: "first" numbers ties in order of appearance
+RANK_METHODS = {"average": "average", "min": "min", "max": "max", "first": "ordinal",
+                "dense": "dense"}
+
+
+@rule("groupby.rank")
+def group_rank(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.groupby(keys)[col].rank(method, ascending, pct) -> .rank(method).over(keys) as floats.
+
+    Handles: method average / min / max / dense, and first (Polars' ordinal: ties numbered in
+    order of appearance, also descending); missing values keep no rank (na_option="keep");
+    pct=True divides by the group's count of values (dense: by its highest rank), window by
+    window so that each quotient is an exact division as in pandas; pandas' ranks are float64.
+    """
+    grouped, column = _selected(call)
+    ctx.reject_unknown(call, "method", "ascending", "na_option", "pct", positional=4)
+    method = call.const("method", 0, "average", kinds=(str,))
+    ascending = call.const("ascending", 1, True, kinds=(bool,))
+    na_option = call.const("na_option", 2, "keep", kinds=(str,))
+    pct = call.const("pct", 3, False, kinds=(bool,))
+    if method not in RANK_METHODS:
+        raise Unsupported(f"method={method!r}")
+    if na_option != "keep":
+        raise Unsupported(f"na_option={na_option!r} (missing values ranked first or last)")
+    if column.dtype in ("category", "enum"):
+        raise Unsupported("ranks of categories follow the order of the categories in pandas")
+    kwargs = {} if ascending else {"descending": True}
+    rank = column.code.method("rank", RANK_METHODS[method], **kwargs)
+    if method != "average":
+        rank = rank.method("cast", emit.atom("pl.Float64"))
+    if not pct:
+        return derived_column(column, _window(grouped, rank), dtype="float")
+    # the divisor as a window of its own: Polars divides a column by a single value as a
+    # multiplication by its reciprocal (one binary digit off pandas' quotient)
+    total = column.code.method("rank", "dense").method("max") if method == "dense" \
+        else column.code.method("count")
+    ratio = emit.binop(_over(grouped, rank), "/", _over(grouped, total))
+    return derived_column(column, _window(grouped, rank, over=ratio), dtype="float")
+
+
+@rule("groupby.pct_change")
+def group_pct_change(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.groupby(keys)[col].pct_change(n) -> .pct_change(n).over(keys).
+
+    Handles: pandas 3 no longer fills missing values first (fill_method=None), nor does
+    Polars: a change from or to a missing value is missing; 0 / 0 is NaN, a missing value
+    (fill_nan(None)), x / 0 is inf in both; a missing key gives a missing value.
+    """
+    grouped, column = _selected(call)
+    ctx.reject_unknown(call, "periods", "fill_method", positional=1)
+    periods = call.const("periods", 0, 1, kinds=(int,))
+    if call.const("fill_method", None, None) is not None:
+        raise Unsupported("fill_method (pandas 3 raises)")
+    if column.dtype in NOT_NUMERIC or column.dtype == "bool":
+        raise Unsupported(f"pct_change of a {column.dtype} column")
+    expr = column.code.method("pct_change", *([periods] if periods != 1 else []))
+    return derived_column(column, _window(grouped, expr.method("fill_nan", None)), dtype="float")
+
+
+# transform("cumsum") and the like: the group window of that name
+GROUP_WINDOWS = {**{name: group_cumulative for name in CUMULATIVE}, "cumcount": group_cumcount,
+                 "rank": group_rank, "ffill": group_fill, "bfill": group_fill,
+                 "pct_change": group_pct_change, "shift": group_shift, "diff": group_shift}
 
 
 # -- rolling and expanding windows --------------------------------------------------------------
