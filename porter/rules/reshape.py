@@ -1,0 +1,504 @@
+"""Reshaping: pd.crosstab, melt / pd.melt, pd.get_dummies, pd.qcut.
+
+A crosstab's columns and a get_dummies' columns are the data's own values, which a lazy plan
+cannot list before it runs: like pivot_table, those rules collect the frame once and build the
+new columns on the collected DataFrame, then go back to lazy.
+"""
+
+from __future__ import annotations
+
+from typing import Any
+
+import numpy as np
+
+from porter.emit import code as emit
+from porter.emit.code import Code
+from porter.rules import rule
+from porter.rules.groupby import agg_expr, how_name
+from porter.rules.io import polars_dtype
+from porter.rules.io_options import DIVIDE_FUNCTION
+from porter.translate.context import (
+    PandasCall, RuleContext, Unsupported, check_same_rows, column_names, derived_column,
+)
+from porter.translate.values import Column, Frame, Items, Opaque, Value
+
+_NUMBER_TYPES = ("int", "float")
+
+
+# -- crosstab -----------------------------------------------------------------------------------
+
+def _series_list(value: Value, what: str) -> list[Column]:
+    """The Series given as the crosstab's index or columns: one, or a list written out."""
+    items = list(value.items) if isinstance(value, Items) else [value]
+    if not items or not all(isinstance(v, Column) and not v.element for v in items):
+        raise Unsupported(f"the {what} are not columns of a frame porter tracks (arrays and "
+                          "lists are labelled by position, which has no lazy form)")
+    return items  # type: ignore[return-value]
+
+
+def _key_names(call: PandasCall, name: str, position: int, series: list[Column],
+               prefix: str) -> list[str]:
+    given = call.const(name, position, None, kinds=(str, list, tuple))
+    if given is not None:
+        names = column_names(given, f"`{name}`")
+        if len(names) != len(series):
+            raise Unsupported(f"`{name}` does not name each Series (pandas raises)")
+        return names
+    names = []
+    for i, s in enumerate(series):
+        if s.name is None:
+            # pandas would call it row_0 / col_0; porter cannot tell an unnamed Series from one
+            # whose name it lost, so the names must be written out
+            raise Unsupported(f"a Series without a name: pass {name}=[...]")
+        names.append(s.name)
+    return names
+
+
+def _normalize_how(value: Any) -> str | None:
+    if value is False:
+        return None
+    if value is True:
+        return "all"
+    found = {"all": "all", "index": "index", "columns": "columns", 0: "index", 1: "columns"}
+    if isinstance(value, (str, int)) and value in found:
+        return found[value]
+    raise Unsupported(f"normalize={value!r} (pandas raises)")
+
+
+@rule("pd.crosstab")
+def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.crosstab(index, columns) -> group_by both keys and pl.len(), collected and pivoted.
+
+    Handles: rows with a missing key are dropped; counts as Int64 and 0 for a combination
+    that never occurs; rows sorted by the index keys, the new columns in the order of their
+    values; the index keys stay label columns named like the Series (reset_index() brings them
+    back); normalize=True/"all"/"index"/"columns" divides as pandas divides (pandas_div);
+    values= with aggfunc mean or median (float cells, a group whose value is missing dropped, as
+    pandas drops it), and sum / min / max of a float column; several index Series.
+    Caveats: several columns Series (two levels of column labels), margins, dropna=False,
+    normalize with values, and sum / min / max / count of a column that is not known to be float
+    (pandas makes the cells float when one combination is missing) are TODOs. The new columns
+    are named by their values as text; boolean and datetime column keys are TODOs (Polars
+    names them true / 2024-01-01 00:00:00.000000).
+    """
+    ctx.reject_unknown(call, "index", "columns", "values", "rownames", "colnames", "aggfunc",
+                       "margins", "margins_name", "dropna", "normalize", positional=10)
+    rows = _series_list(call.arg("index", 0), "index")
+    cols = _series_list(call.arg("columns", 1), "columns")
+    frame = rows[0].frame
+    for s in (*rows, *cols):
+        check_same_rows(s, frame)
+    row_names = _key_names(call, "rownames", 3, rows, "row")
+    col_names = _key_names(call, "colnames", 4, cols, "col")
+    if len(cols) > 1:
+        raise Unsupported("several columns Series: pandas makes two levels of column labels")
+    names = [*row_names, *col_names]
+    if len(set(names)) != len(names):
+        raise Unsupported("two keys with the same name")
+    if call.const("margins", 6, False, kinds=(bool,)):
+        raise Unsupported("margins=True (the total row and column)")
+    call.const("margins_name", 7, "All", kinds=(str,))
+    if call.const("dropna", 8, True, kinds=(bool,)) is not True:
+        raise Unsupported("dropna=False keeps missing keys and combinations no row has")
+    normalize = _normalize_how(call.const("normalize", 9, False, kinds=(bool, str, int)))
+    has_values, has_agg = call.has("values", 2), call.has("aggfunc", 5)
+    if has_values != has_agg:
+        raise Unsupported("values= without aggfunc= or aggfunc= without values= (pandas raises)")
+
+    key = cols[0]
+    if key.dtype in ("bool", "datetime", "date"):
+        raise Unsupported(f"a {key.dtype} columns key: Polars names the new columns "
+                          "differently from pandas' labels")
+    if key.dtype not in ("str", "enum"):
+        ctx.lower("the new columns are named by their values as text (pandas keeps the values)",
+                  0.95)
+    for s in (*rows, key):
+        if s.dtype == "category":
+            ctx.lower("category keys sort by their categories in pandas; porter sorts by text, "
+                      "which is the same for categories made by astype('category')", 0.9)
+
+    pairs: list[tuple[Column, str]] = list(zip([*rows, key], names))
+    value_name = "len"
+    if has_values:
+        values = call.arg("values", 2)
+        if not isinstance(values, Column):
+            raise Unsupported("values= that is not a column of the frame")
+        check_same_rows(values, frame)
+        how = how_name(call.arg("aggfunc", 5))
+        if normalize is not None:
+            raise Unsupported("normalize with values= and aggfunc=")
+        if how in ("sum", "min", "max"):
+            if values.dtype != "float":
+                raise Unsupported(f"aggfunc {how!r} of a column not known to be float: pandas "
+                                  "makes the cells float when one combination is missing, "
+                                  "which depends on the data")
+        elif how not in ("mean", "median"):
+            raise Unsupported(f"aggfunc {how!r}")
+        value_name = values.name if values.name is not None else "values"
+        pairs.append((values, value_name))
+    while value_name in names:
+        value_name = f"_{value_name}"
+    if has_values:
+        pairs[-1] = (pairs[-1][0], value_name)
+
+    plain = all(s.code.text == emit.col(n).text for s, n in pairs)
+    code = frame.code if plain else frame.code.method(
+        "select", *(s.code if s.code.text == emit.col(n).text else s.code.method("alias", n)
+                    for s, n in pairs))
+    code = code.method("drop_nulls", names).method("group_by", names)
+    if has_values:
+        code = code.method("agg", agg_expr(emit.col(value_name), how, pairs[-1][0].dtype))
+        if how in ("mean", "median", "min", "max"):
+            code = code.method("drop_nulls", value_name)  # pandas drops a group whose value is missing
+        fill: Any = None
+    else:
+        count = emit.pl("len").method("cast", emit.atom("pl.Int64"))
+        if value_name != "len":
+            count = count.method("alias", value_name)
+        code = code.method("agg", count)
+        fill = 0
+        if normalize is not None:
+            total = emit.col(value_name).method("sum")
+            if normalize == "index":
+                total = total.method("over", emit.names_arg(row_names))
+            elif normalize == "columns":
+                total = total.method("over", col_names[0])
+            # each count divided by its total once, as pandas divides the table
+            code = code.method("with_columns", emit.call(DIVIDE_FUNCTION, emit.col(value_name),
+                                                         total))
+            fill = 0.0
+    index = emit.names_arg(row_names)
+    # the new columns appear in the order the pivot meets their values: sorted first
+    code = code.method("sort", col_names[0]).method("collect").method(
+        "pivot", on=col_names[0], index=index, values=value_name)
+    code = code.method("sort", index)
+    if fill is not None:  # a combination no row has: 0 in pandas
+        code = code.method("with_columns", emit.pl("exclude", index).method("fill_null", fill))
+    dtypes = tuple((n, s.dtype) for s, n in zip(rows, row_names) if s.dtype is not None)
+    return Frame(code.method("lazy"), columns=None, index=tuple(row_names), dtypes=dtypes,
+                 labels_intact=False)
+
+
+# -- melt ---------------------------------------------------------------------------------------
+
+_MELT_ROW = "__melt_row"
+
+
+def _names_or_none(call: PandasCall, name: str, position: int) -> list[str] | None:
+    value = call.const(name, position, None, kinds=(str, list, tuple))
+    if value is None:
+        return None
+    if isinstance(value, (list, tuple)) and not value:
+        return []
+    return column_names(value, f"`{name}`")
+
+
+@rule("frame.melt", "pd.melt")
+def melt(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.melt(id_vars, value_vars) / pd.melt(df, ...) -> unpivot(on, index), sorted back into
+    pandas' order.
+
+    Handles: pandas' rows (every row of the first value column, then of the second, ...: Polars
+    unpivots piece by piece, so the rows are numbered first and sorted by column position then
+    row); columns named variable and value (var_name / value_name); value columns of ints and
+    floats give floats in both; value_vars left out means every other column (when known).
+    Caveats: value columns mixing text, numbers or booleans (pandas keeps each value as it is,
+    an object column; Polars casts them to one type) are TODOs, and lower the confidence when
+    their types are unknown; ignore_index=False, col_level, a frame with an index (reset_index()
+    first) and value_vars left out when the columns are unknown are TODOs.
+    """
+    offset = 1 if call.receiver is None else 0
+    frame = call.receiver if offset == 0 else call.arg("frame", 0)
+    if not isinstance(frame, Frame):
+        raise Unsupported("melting something other than a frame porter tracks")
+    known = ("id_vars", "value_vars", "var_name", "value_name", "col_level", "ignore_index")
+    ctx.reject_unknown(call, *known, *(("frame",) if offset else ()), positional=5 + offset)
+    if call.const("col_level", 4 + offset, None) is not None:
+        raise Unsupported("col_level (two levels of column labels)")
+    if call.const("ignore_index", None, True, kinds=(bool,)) is not True:
+        raise Unsupported("ignore_index=False repeats the row labels")
+    if frame.index:
+        raise Unsupported("the frame has an index (pandas leaves it out of the values): call "
+                          "reset_index() first")
+    id_vars = _names_or_none(call, "id_vars", 0 + offset) or []
+    value_vars = _names_or_none(call, "value_vars", 1 + offset)
+    var_name = call.const("var_name", 2 + offset, None, kinds=(str,))
+    var_name = "variable" if var_name is None else var_name
+    value_name = call.const("value_name", 3 + offset, "value", kinds=(str,))
+    columns = frame.columns
+    if value_vars is None:
+        if columns is None:
+            raise Unsupported("value_vars left out and the frame's columns are not known: list "
+                              "them (pandas' row order follows them)")
+        value_vars = [c for c in columns if c not in id_vars]
+    if not value_vars:
+        raise Unsupported("no value columns")
+    if set(value_vars) & set(id_vars) or len(set(value_vars)) != len(value_vars) \
+            or len(set(id_vars)) != len(id_vars):
+        raise Unsupported("a column listed twice")
+    if columns is not None:
+        absent = [c for c in (*id_vars, *value_vars) if c not in columns]
+        if absent:
+            raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
+        if value_name in columns:
+            raise Unsupported(f"value_name {value_name!r} is a column (pandas raises)")
+    if var_name in (*id_vars, value_name) or value_name in id_vars:
+        raise Unsupported("var_name or value_name repeats a column name")
+    value_dtype = _common_value_dtype(frame, value_vars, ctx)
+
+    options: dict[str, object] = {"index": emit.names_arg(id_vars)} if id_vars else {}
+    if var_name != "variable":
+        options["variable_name"] = var_name
+    if value_name != "value":
+        options["value_name"] = value_name
+    if len(value_vars) == 1:  # one piece: Polars keeps the rows in order
+        code = frame.code.method("unpivot", value_vars[0], **options)
+    else:
+        options["index"] = [*id_vars, _MELT_ROW]
+        code = (frame.code.method("with_row_index", _MELT_ROW)
+                .method("unpivot", value_vars, **options)
+                .method("sort", emit.col(var_name).method("cast", emit.pl("Enum", value_vars)),
+                        _MELT_ROW)
+                .method("drop", _MELT_ROW))
+    dtypes = [(c, frame.dtype(c)) for c in id_vars] + [(var_name, "str"), (value_name, value_dtype)]
+    return Frame(code, columns=(*id_vars, var_name, value_name), labels_intact=True,
+                 dtypes=tuple((c, t) for c, t in dtypes if t is not None))
+
+
+def _common_value_dtype(frame: Frame, value_vars: list[str], ctx: RuleContext) -> str | None:
+    types = {frame.dtype(c) for c in value_vars}
+    if None in types:
+        if len(value_vars) > 1:
+            ctx.lower("the value columns' types are not known: pandas keeps each value as it is "
+                      "when they mix text, numbers or booleans (an object column), Polars casts "
+                      "them to one type", 0.9)
+        return None
+    if len(types) == 1:
+        return types.pop()
+    if types <= set(_NUMBER_TYPES):
+        return "float"
+    raise Unsupported(f"value columns of types {sorted(types)}: pandas keeps each value as it is "
+                      "(an object column), Polars casts them to one type")
+
+
+# -- get_dummies --------------------------------------------------------------------------------
+
+def _label(prefix: str | None, sep: str) -> Code:
+    """The dummy column's name for the category `v`: pandas writes f"{prefix}{sep}{v}"."""
+    if prefix is None:
+        return emit.call("str", emit.atom("v"))
+    head = prefix + sep
+    if not any(ch in head for ch in "{}\\'\"\n\r"):
+        return emit.atom(f'f"{head}{{v}}"')
+    return emit.binop(emit.lit(head), "+", emit.call("str", emit.atom("v")))
+
+
+def _dummies(column: str, prefix: str | None, sep: str, cast: str | None, drop_first: bool,
+             dummy_na: bool) -> list[Code]:
+    """One expression per category of `column` in the collected frame `d`, sorted as pandas
+    sorts them; a missing value is False in every one (eq_missing)."""
+    categories = emit.atom(f"d[{emit.literal_text(column)}]").method("drop_nulls").method(
+        "unique").method("sort")
+    if drop_first:
+        categories = categories.method("slice", 1)
+    one = emit.col(column).method("eq_missing", emit.atom("v"))
+    if cast is not None:
+        one = one.method("cast", emit.atom(cast))
+    one = one.method("alias", _label(prefix, sep))
+    parts = [emit.atom(f"*({one.text} for v in {categories.text})")]
+    if dummy_na:
+        missing = emit.col(column).method("is_null")
+        if cast is not None:
+            missing = missing.method("cast", emit.atom(cast))
+        name = "nan" if prefix is None else f"{prefix}{sep}nan"
+        parts.append(missing.method("alias", name))
+    return parts
+
+
+@rule("pd.get_dummies")
+def get_dummies(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.get_dummies(df, columns=[...]) / pd.get_dummies(s) -> the frame collected, then one
+    eq_missing(v) column per category v of the collected column.
+
+    Handles: the categories sorted as pandas sorts them, named prefix + prefix_sep + value (the
+    column's name by default; the value alone for a Series); the other columns first, then the
+    dummies of each encoded column in the order of `columns`; missing values False in every
+    dummy, or a `nan` column with dummy_na=True; drop_first drops the first sorted category;
+    bool columns by default, or dtype=; prefix as text, a list or a dict; columns left out
+    encodes the text columns when every column's type is known.
+    Caveats: category columns (pandas makes a column for every category, used or not), datetime
+    columns (named differently), sparse=True, dummy_na with drop_first, a frame with an index,
+    and columns left out when the types are unknown are TODOs. An encoded column of unknown
+    type is named as Python writes its values (0.95).
+    """
+    ctx.reject_unknown(call, "data", "prefix", "prefix_sep", "dummy_na", "columns", "sparse",
+                       "drop_first", "dtype", positional=8)
+    data = call.arg("data", 0)
+    prefix = call.const("prefix", 1, None, kinds=(str, list, tuple, dict))
+    sep = call.const("prefix_sep", 2, "_", kinds=(str,))
+    dummy_na = call.const("dummy_na", 3, False, kinds=(bool,))
+    if call.const("sparse", 5, False, kinds=(bool,)):
+        raise Unsupported("sparse=True (Polars has no sparse columns)")
+    drop_first = call.const("drop_first", 6, False, kinds=(bool,))
+    if dummy_na and drop_first:
+        raise Unsupported("dummy_na with drop_first")
+    cast: str | None = None
+    dtype = call.arg("dtype", 7, None)
+    if dtype is not None and not (isinstance(dtype, Opaque) and dtype.is_const and dtype.const is None):
+        cast, _ = polars_dtype(dtype)
+        if cast == "pl.Boolean":
+            cast = None
+
+    if isinstance(data, Column):
+        if data.element:
+            raise Unsupported("get_dummies inside a lambda")
+        if call.has("columns", 4):
+            raise Unsupported("columns= with a Series")
+        if isinstance(prefix, (list, tuple, dict)):
+            raise Unsupported("a list or dict of prefixes for a Series")
+        _check_encodable(data.dtype, ctx)
+        name = data.name if data.name is not None else "values"
+        source = data.frame.code.method(
+            "select", data.code if data.code.text == emit.col(name).text
+            else data.code.method("alias", name))
+        exprs = _dummies(name, prefix, sep, cast, drop_first, dummy_na)
+        code = source.method("collect").method(
+            "pipe", emit.atom(f"lambda d: d.select({', '.join(e.text for e in exprs)})"))
+        return Frame(code.method("lazy"), columns=None, labels_intact=data.frame.labels_intact)
+
+    if not isinstance(data, Frame):
+        raise Unsupported("get_dummies of something other than a frame or column porter tracks")
+    frame = data
+    if frame.index:
+        raise Unsupported("the frame has an index: call reset_index() first")
+    encode = _names_or_none(call, "columns", 4)
+    if encode is None:
+        if frame.columns is None or any(frame.dtype(c) is None for c in frame.columns):
+            raise Unsupported("columns left out and the column types are not known: pandas "
+                              "encodes the text and category columns; list them in columns=")
+        encode = [c for c in frame.columns if frame.dtype(c) in ("str", "category", "enum")]
+    if len(set(encode)) != len(encode):
+        raise Unsupported("a column listed twice")
+    if frame.columns is not None:
+        absent = [c for c in encode if c not in frame.columns]
+        if absent:
+            raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
+    for c in encode:
+        _check_encodable(frame.dtype(c), ctx)
+    if isinstance(prefix, dict):
+        if set(prefix) != set(encode) or not all(isinstance(p, str) for p in prefix.values()):
+            raise Unsupported("a prefix dict that does not name each encoded column")
+        prefixes = [prefix[c] for c in encode]
+    elif isinstance(prefix, (list, tuple)):
+        if len(prefix) != len(encode) or not all(isinstance(p, str) for p in prefix):
+            raise Unsupported("a prefix list that does not match the encoded columns (pandas "
+                              "raises)")
+        prefixes = list(prefix)
+    else:
+        prefixes = [prefix if prefix is not None else c for c in encode]
+    if not encode:
+        return frame
+    exprs = [emit.pl("exclude", encode)]
+    for c, p in zip(encode, prefixes):
+        exprs += _dummies(c, p, sep, cast, drop_first, dummy_na)
+    code = frame.code.method("collect").method(
+        "pipe", emit.atom(f"lambda d: d.select({', '.join(e.text for e in exprs)})"))
+    kept = tuple((c, t) for c, t in frame.dtypes if c not in encode)
+    return Frame(code.method("lazy"), columns=None, dtypes=kept,
+                 labels_intact=frame.labels_intact)
+
+
+def _check_encodable(dtype: str | None, ctx: RuleContext) -> None:
+    if dtype in ("category", "enum"):
+        raise Unsupported("a category column: pandas makes a column for every category, used "
+                          "or not, in the categories' order")
+    if dtype in ("datetime", "date"):
+        raise Unsupported(f"a {dtype} column: pandas names the columns by its Timestamps")
+    if dtype is None:
+        ctx.lower("the dummy columns are named as Python writes the values (a datetime column "
+                  "would be named differently)", 0.95)
+
+
+# -- qcut ---------------------------------------------------------------------------------------
+
+@rule("pd.qcut")
+def qcut(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.qcut(s, q, labels=[...]) -> pl.when(s between two quantile edges).then(label)... as
+    pl.Enum.
+
+    Handles: q as a number of bins (edges at evenly spaced quantiles) or a list of quantiles;
+    the edges are the column's linear quantiles, as pandas computes them (missing values
+    skipped); bins closed on the right with the lowest edge included; missing values and values
+    outside the edges are missing; the labels become an Enum, sorted in the labels' order as
+    pandas sorts its ordered categorical; labels=False gives the bin numbers.
+    Caveats: pandas raises when two edges are equal (many ties, fewer distinct values than
+    bins, no values) and the Polars code leaves those bins empty instead (0.95); labels=None
+    (pandas' Interval values, whose text depends on the edges), duplicates="drop" and
+    retbins=True are TODOs. labels=False gives Int64 where pandas gives float bin numbers when a
+    value is missing (0.9). Quantile edges may differ from pandas' in the last binary digit; no
+    value lands in another bin (measured on 20,000 random columns with ties).
+    """
+    ctx.reject_unknown(call, "x", "q", "labels", "retbins", "precision", "duplicates",
+                       positional=6)
+    column = call.arg("x", 0)
+    if not isinstance(column, Column) or column.element:
+        raise Unsupported("cutting something other than a column")
+    if column.dtype in ("str", "bool", "datetime", "date", "category", "enum"):
+        raise Unsupported(f"cutting a {column.dtype} column")
+    q = call.const("q", 1, None, kinds=(int, list, tuple))
+    if isinstance(q, int):
+        if q < 1:
+            raise Unsupported(f"q={q} (pandas raises)")
+        quantiles = [float(p) for p in np.linspace(0, 1, q + 1)]
+    elif isinstance(q, (list, tuple)) and len(q) >= 2 and all(
+            isinstance(p, (int, float)) and not isinstance(p, bool) and 0 <= p <= 1 for p in q):
+        quantiles = [float(p) for p in q]
+        if any(a >= b for a, b in zip(quantiles, quantiles[1:])):
+            raise Unsupported("quantiles that do not increase (pandas raises)")
+    else:
+        raise Unsupported("q other than a number of bins or a list of quantiles in [0, 1]")
+    if call.const("retbins", 3, False, kinds=(bool,)):
+        raise Unsupported("retbins=True returns the edges too")
+    call.const("precision", 4, 3, kinds=(int,))  # only shapes Interval labels
+    if call.const("duplicates", 5, "raise", kinds=(str,)) != "raise":
+        raise Unsupported("duplicates='drop': the number of bins depends on the data")
+    labels = call.const("labels", 2, None, kinds=(list, tuple, bool))
+    bins = len(quantiles) - 1
+    if labels is False:
+        ctx.lower("pandas gives float bin numbers (1.0) when a value is missing or outside the "
+                  "edges; Polars gives integers with missing values", 0.9)
+        steps: list[Any] = list(range(bins))
+    elif isinstance(labels, (list, tuple)) and all(isinstance(x, str) for x in labels):
+        if len(labels) != bins:
+            raise Unsupported("a label count that does not match the bins (pandas raises)")
+        if len(set(labels)) != len(labels):
+            raise Unsupported("repeated labels")
+        steps = [emit.pl("lit", x) for x in labels]
+    else:
+        raise Unsupported("labels other than a list of texts or False (pandas' Interval values "
+                          "are named from the edges, which depend on the data)")
+    ctx.lower("pandas raises when two quantile edges are equal (ties, fewer distinct values than "
+              "bins, or no values); the Polars code leaves those bins empty", 0.95)
+    x = column.code
+    edges = [_edge(x, p) for p in quantiles]
+    code: Code | None = None
+    for i, (low, high, step) in enumerate(zip(edges, edges[1:], steps)):
+        # right-closed bins, the lowest edge included (pandas' include_lowest=True)
+        test = x.method("is_between", low, high, closed="both" if i == 0 else "right")
+        code = emit.pl("when", test).method("then", step) if code is None \
+            else code.method("when", test).method("then", step)
+    assert code is not None
+    if labels is False:
+        return derived_column(column, code.method("cast", emit.atom("pl.Int64")), dtype="int")
+    code = code.method("cast", emit.pl("Enum", list(labels)))
+    return derived_column(column, code, dtype="enum")
+
+
+def _edge(x: Code, p: float) -> Code:
+    """The p quantile of the column, interpolated linearly as pandas does (Polars' default is
+    nearest); the ends are the minimum and maximum."""
+    if p == 0.0:
+        return x.method("min")
+    if p == 1.0:
+        return x.method("max")
+    return x.method("quantile", p, "linear")

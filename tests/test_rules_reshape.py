@@ -1,0 +1,276 @@
+"""Rule cases and differential checks for porter/rules/reshape.py (crosstab, melt, get_dummies,
+qcut).
+
+pandas is the reference implementation: every differential check runs the snippet with pandas
+and its conversion with Polars and compares what they computed (pandas' index becomes columns).
+"""
+
+from __future__ import annotations
+
+import pytest
+
+from rule_checks import check_ports, check_todo
+from support import convert, differential
+
+# A missing key of each kind (None and NaN), unicode keys, a column key ("r") seen with one
+# index key only, a row ("é") whose other key is missing, NaN values, ties.
+FRAME = """\
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({
+    "shop": ["b", "a", None, "b", "a", "c", np.nan, "Éclair", "c", "a"],
+    "kind": ["p", "q", "q", None, "p", "r", "p", "q", "p", "p"],
+    "qty": [1.0, np.nan, 3.0, 4.0, 5.0, np.nan, 2.0, 2.0, 7.5, 0.5],
+    "n": [1, 2, 3, 4, 5, 6, 7, 8, 8, 2],
+    "size": [3, 1, 1, 2, 3, 3, 1, 2, 2, 3],
+})
+"""
+
+
+def _todo_keys(source: str) -> list[str]:
+    return [s.key for s in convert(source).todos]
+
+
+# -- crosstab -----------------------------------------------------------------------------------
+
+def test_crosstab_ports_to_a_pivot_of_counts() -> None:
+    text = check_ports(FRAME + 'result = pd.crosstab(df["shop"], df["kind"])\n',
+                       '.group_by(["shop", "kind"]).agg(pl.len().cast(pl.Int64))')
+    assert '.pivot(on="kind", index="shop", values="len")' in text
+    assert 'pl.exclude("shop").fill_null(0)' in text
+
+
+@pytest.mark.parametrize("call", [
+    'pd.crosstab(df["shop"], df["kind"])',
+    'pd.crosstab(df.shop, df.kind)',
+    'pd.crosstab(index=df["kind"], columns=df["shop"])',
+    'pd.crosstab(df["shop"], df["size"])',  # number labels: named as text by Polars
+    'pd.crosstab([df["shop"], df["kind"]], df["size"])',
+    'pd.crosstab(df["shop"].str.upper(), df["kind"])',
+    'pd.crosstab(df["shop"], df["kind"], rownames=["where"], colnames=["what"])',
+    'pd.crosstab(df["shop"], df["kind"], normalize=True)',
+    'pd.crosstab(df["shop"], df["kind"], normalize="all")',
+    'pd.crosstab(df["shop"], df["kind"], normalize="index")',
+    'pd.crosstab(df["shop"], df["kind"], normalize="columns")',
+    'pd.crosstab(df["shop"], df["kind"], normalize=0)',
+    'pd.crosstab(df["shop"], df["kind"], normalize=1)',
+    'pd.crosstab(df["shop"], df["kind"], values=df["qty"], aggfunc="mean")',
+    'pd.crosstab(df["shop"], df["kind"], values=df["n"], aggfunc="median")',
+    'pd.crosstab(df["shop"], df["kind"], values=df["qty"], aggfunc="sum")',
+    'pd.crosstab(df["shop"], df["kind"], values=df["qty"], aggfunc="max")',
+    'pd.crosstab(df["kind"], df["shop"], values=df["qty"], aggfunc=np.mean)',
+])
+def test_crosstab_matches_pandas(call: str) -> None:
+    # rows sorted by key (Éclair after the ASCII letters), missing keys dropped, 0 for "r"
+    # under every shop but c; a group whose mean is missing dropped (a's "q")
+    result = differential(FRAME + f"result = {call}\n")
+    assert not result.todos, result.converted_text
+
+
+def test_crosstab_after_reset_index_and_round() -> None:
+    differential(FRAME + 'result = pd.crosstab(df["shop"], df["kind"], normalize="index")'
+                         '.round(3).reset_index()\n')
+
+
+def test_crosstab_of_no_rows() -> None:
+    result = differential(FRAME + 'e = df[df["n"] > 100]\n'
+                                  'result = pd.crosstab(e["shop"], e["kind"]).reset_index()\n')
+    assert not result.todos
+
+
+def test_crosstab_normalize_divides_as_pandas() -> None:
+    # 1 / 3, 2 / 3, 1 / 7 ... : Polars' reciprocal multiplication would be a digit off
+    source = ("import pandas as pd\n"
+              "df = pd.DataFrame({'k': list('aaabbbbbbb' * 7), 'c': list('xyz' * 23 + 'x')})\n"
+              "result = pd.crosstab(df['k'], df['c'], normalize='index')\n")
+    text = differential(source).converted_text
+    assert "pandas_div(" in text
+
+
+def test_crosstab_of_number_labels_lowers_confidence() -> None:
+    result = convert(FRAME + 'result = pd.crosstab(df["shop"], df["size"])\n')
+    site = next(s for s in result.sites if s.key == "pd.crosstab")
+    assert site.confidence == 0.95 and "as text" in site.message
+
+
+@pytest.mark.parametrize("call,reason", [
+    ('pd.crosstab(df["shop"], df["kind"], margins=True)', "margins"),
+    ('pd.crosstab(df["shop"], df["kind"], dropna=False)', "dropna=False"),
+    ('pd.crosstab(df["shop"], [df["kind"], df["size"]])', "two levels"),
+    ('pd.crosstab(df["shop"], df["kind"], values=df["n"], aggfunc="sum")', "float"),
+    ('pd.crosstab(df["shop"], df["kind"], values=df["qty"], aggfunc="count")', "count"),
+    ('pd.crosstab(df["shop"], df["n"] > 3)', "bool"),
+    ('pd.crosstab(df["shop"], df["kind"], normalize="index", values=df["qty"], aggfunc="mean")',
+     "normalize"),
+    ('pd.crosstab(df["shop"].values, df["kind"])', "not columns"),
+])
+def test_crosstab_todo(call: str, reason: str) -> None:
+    text = check_todo(FRAME + f"result = {call}\n", "pd.crosstab")
+    assert reason in text
+
+
+# -- melt ---------------------------------------------------------------------------------------
+
+def test_melt_ports_to_unpivot_in_pandas_order() -> None:
+    check_ports(FRAME + 'result = df.melt(id_vars="shop", value_vars=["qty", "n"])\n',
+                '.with_row_index("__melt_row").unpivot(["qty", "n"], index=["shop", "__melt_row"])'
+                '.sort(pl.col("variable").cast(pl.Enum(["qty", "n"])), "__melt_row")'
+                '.drop("__melt_row")')
+
+
+@pytest.mark.parametrize("call", [
+    'df.melt(id_vars="shop", value_vars=["qty", "n"])',  # NaN, ints and floats: float values
+    'df.melt(id_vars=["shop", "kind"], value_vars=["n", "size"])',
+    'df.melt(id_vars="shop", value_vars="qty")',
+    'df.melt(id_vars=["shop"], value_vars=["kind"], var_name="what", value_name="which")',
+    'df[["shop", "n", "size"]].melt(id_vars="shop")',  # every other column
+    'df[["n", "size"]].melt()',
+    'pd.melt(df, id_vars=["shop"], value_vars=["n", "size"])',
+    'pd.melt(df, ["kind"], ["size", "n"], "col", "val")',
+    'df[df["n"] > 100].melt(id_vars="shop", value_vars=["qty", "n"])',
+    'df[df["n"] > 2].melt(id_vars="shop", value_vars=["size", "n"])',
+])
+def test_melt_matches_pandas(call: str) -> None:
+    result = differential(FRAME + f"result = {call}\n")
+    assert not result.todos, result.converted_text
+
+
+def test_melt_of_a_frame_in_pieces_keeps_pandas_order() -> None:
+    # a concatenated frame is held in pieces: Polars' unpivot goes piece by piece, so without
+    # the sort the second piece's rows of "n" would come after the first piece's rows of "size"
+    source = FRAME + ('both = pd.concat([df, df.sort_values("n")], ignore_index=True)\n'
+                      'result = both.melt(id_vars="shop", value_vars=["n", "size"])\n')
+    result = differential(source)
+    assert not result.todos, result.converted_text
+
+
+@pytest.mark.parametrize("call,reason", [
+    ('df.melt(id_vars="shop", value_vars=["kind", "n"])', "object"),
+    ('df.melt(id_vars="shop", value_vars=["n"], ignore_index=False)', "ignore_index"),
+    ('df.groupby("shop")[["n", "size"]].sum().melt()', "index"),
+])
+def test_melt_todo(call: str, reason: str) -> None:
+    text = check_todo(FRAME + f"result = {call}\n", "frame.melt")
+    assert reason in text
+
+
+def test_melt_without_value_vars_needs_the_columns() -> None:
+    source = "import pandas as pd\ndf = pd.read_csv('kiosks.csv')\nresult = df.melt(id_vars='k')\n"
+    assert _todo_keys(source) == ["frame.melt"]
+
+
+# -- get_dummies --------------------------------------------------------------------------------
+
+def test_get_dummies_ports_to_one_expression_per_category() -> None:
+    check_ports(FRAME + 'result = pd.get_dummies(df, columns=["kind"])\n',
+                '.collect().pipe(lambda d: d.select(pl.exclude(["kind"]), '
+                '*(pl.col("kind").eq_missing(v).alias(f"kind_{v}") '
+                'for v in d["kind"].drop_nulls().unique().sort())))')
+
+
+@pytest.mark.parametrize("call", [
+    'pd.get_dummies(df, columns=["kind"])',
+    'pd.get_dummies(df, columns=["kind", "shop"])',  # in the order of columns=
+    'pd.get_dummies(df, columns=["size"], dtype=float)',
+    'pd.get_dummies(df, columns=["shop"], dtype=int, drop_first=True)',
+    'pd.get_dummies(df, columns=["qty"])',
+    'pd.get_dummies(df, columns=["shop", "kind"], prefix=["S", "K"], prefix_sep="-")',
+    'pd.get_dummies(df, columns=["shop", "kind"], prefix={"kind": "k", "shop": "s"})',
+    'pd.get_dummies(df, columns=["shop", "kind"], prefix="x")',
+    'pd.get_dummies(df, columns=["shop"], dummy_na=True)',
+    'pd.get_dummies(df)',
+    'pd.get_dummies(df[["n", "kind"]], columns=["kind"], dtype=float)',
+    'pd.get_dummies(df["shop"])',
+    'pd.get_dummies(df["size"], prefix="size", drop_first=True)',
+    'pd.get_dummies(df["n"] > 4)',
+    'pd.get_dummies(df[df["n"] > 100], columns=["shop"])',
+    'pd.get_dummies(df[df["n"] > 6], columns=["kind"], drop_first=True)',
+])
+def test_get_dummies_matches_pandas(call: str) -> None:
+    result = differential(FRAME + f"result = {call}\n")
+    assert not result.todos, result.converted_text
+
+
+@pytest.mark.parametrize("call,reason", [
+    ('pd.get_dummies(df.astype({"kind": "category"}), columns=["kind"])', "category"),
+    ('pd.get_dummies(df, columns=["kind"], dummy_na=True, drop_first=True)', "dummy_na"),
+    ('pd.get_dummies(df.groupby("shop")[["kind"]].first(), columns=["kind"])', "index"),
+])
+def test_get_dummies_todo(call: str, reason: str) -> None:
+    text = check_todo(FRAME + f"result = {call}\n", "pd.get_dummies")
+    assert reason in text
+
+
+@pytest.mark.parametrize("call", [
+    'pd.get_dummies(df, columns=["kind"], sparse=True)',
+    'pd.get_dummies(df, columns=["kind"], prefix=["a", "b"])',  # pandas raises
+    'pd.crosstab(df["shop"], df["kind"], values=df["qty"])',  # pandas raises
+    'df.melt(id_vars="shop", value_vars=["n"], value_name="shop")',  # pandas raises
+    'pd.qcut(df["n"], 3, labels=["a", "b"])',  # pandas raises
+])
+def test_forms_left_to_pandas(call: str) -> None:
+    keys = _todo_keys(FRAME + f"result = {call}\n")
+    assert len(keys) == 1 and call.split("(")[0].replace("df.", "frame.") in keys
+
+
+def test_get_dummies_of_unknown_columns_is_a_todo() -> None:
+    source = "import pandas as pd\ndf = pd.read_csv('kiosks.csv')\nresult = pd.get_dummies(df)\n"
+    assert _todo_keys(source) == ["pd.get_dummies"]
+
+
+# -- qcut ---------------------------------------------------------------------------------------
+
+QCUT = """\
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({
+    "kg": [3.0, 1.0, np.nan, 2.0, 2.0, 5.0, 8.0, None, 4.0, 6.0, 7.0],
+    "n": [1, 2, 3, 4, 5, 6, 7, 1, 2, 3, 4],
+})
+"""
+
+
+def test_qcut_ports_to_linear_quantile_edges() -> None:
+    text = check_ports(QCUT + 'df["band"] = pd.qcut(df["kg"], 2, labels=["lo", "hi"])\n',
+                       'pl.when(pl.col("kg").is_between(pl.col("kg").min(), '
+                       'pl.col("kg").quantile(0.5, "linear"), closed="both"))')
+    assert '.cast(pl.Enum(["lo", "hi"]))' in text
+
+
+@pytest.mark.parametrize("call", [
+    'pd.qcut(df["kg"], 3, labels=["lo", "mid", "hi"])',
+    'pd.qcut(df["kg"], 4, labels=["ä", "b", "c", "d"])',
+    # 1..7 in thirds: the edges 3.0 and 5.0 are values of the column (ties at the edges)
+    'pd.qcut(df["n"], 3, labels=["lo", "mid", "hi"])',
+    'pd.qcut(df["n"], [0, 0.5, 1], labels=["lo", "hi"])',
+    'pd.qcut(df["kg"], [0.25, 0.5, 0.75], labels=["b", "c"])',  # values outside are missing
+    'pd.qcut(df["kg"], q=[0.1, 0.9], labels=["mid"])',
+    'pd.qcut(df["n"] * 1.5, 5, labels=list("abcde"))',
+    'pd.qcut(df["kg"], 3, labels=False)',
+    'pd.qcut(x=df["n"], q=2, labels=False)',
+])
+def test_qcut_matches_pandas(call: str) -> None:
+    result = differential(QCUT + f"df['band'] = {call}\nresult = df\n")
+    assert not result.todos, result.converted_text
+
+
+def test_qcut_labels_sort_in_their_order() -> None:
+    # an ordered categorical sorts by its labels, an Enum too: "hi" after "lo"
+    differential(QCUT + 'df["band"] = pd.qcut(df["kg"], 2, labels=["lo", "hi"])\n'
+                        'result = df.sort_values(["band", "n"])\n')
+
+
+def test_qcut_says_pandas_raises_on_equal_edges() -> None:
+    result = convert(QCUT + 'df["band"] = pd.qcut(df["kg"], 2, labels=["lo", "hi"])\n')
+    site = next(s for s in result.sites if s.key == "pd.qcut")
+    assert site.confidence == 0.95 and "raises" in site.message
+
+
+@pytest.mark.parametrize("call,reason", [
+    ('pd.qcut(df["kg"], 3)', "Interval"),
+    ('pd.qcut(df["kg"], 3, labels=["a", "b", "c"], duplicates="drop")', "duplicates"),
+    ('pd.qcut(df["kg"], [0.5, 0.2], labels=["a"])', "increase"),
+])
+def test_qcut_todo(call: str, reason: str) -> None:
+    text = check_todo(QCUT + f"df['band'] = {call}\n", "pd.qcut")
+    assert reason in text
