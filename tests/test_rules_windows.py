@@ -295,6 +295,44 @@ def test_transform_functions_of_more_than_the_group_are_todos(expr: str) -> None
     assert "groupby.transform" in {s.key for s in result.todos}, result.converted_text
 
 
+# -- rows of each group: head, tail, nth -----------------------------------------------------------
+
+@pytest.mark.parametrize("frame", [pytest.param(GROUPS, id="ties and missing values"),
+                                   pytest.param(ONE_GROUP_EMPTY, id="no rows")])
+@pytest.mark.parametrize("expr", [
+    'df.groupby("k").head(2)', 'df.groupby("k").head()', 'df.groupby("k").head(0)',
+    'df.groupby("k").head(-1)', 'df.groupby("k").tail(1)', 'df.groupby("g").tail(2)',
+    'df.groupby("k").tail(-2)', 'df.groupby(["k", "g"]).head(1)', 'df.groupby("k", dropna=False).head(1)',
+    'df.groupby("k").nth(0)', 'df.groupby("k").nth(1)', 'df.groupby("k").nth(-1)',
+    'df.groupby("k").nth([0, -1])', 'df.groupby("g").nth([0, 0, 2])', 'df.groupby("k").nth([-1, -2])',
+    'df.groupby("k", dropna=False).nth(-1)', 'df.groupby("k")["v"].head(1)',
+    'df.groupby("k")[["v", "t"]].tail(1)', 'df.groupby("k", sort=False).nth(5)',
+])
+def test_group_rows_match_pandas(frame: str, expr: str) -> None:
+    result = differential(frame + f"result = {expr}\n")
+    assert not result.todos, result.converted_text
+
+
+def test_group_rows_are_a_filter_in_the_frames_order() -> None:
+    text = check_ports(GROUPS + 'top = df.groupby("k").head(2)\n',
+                       'df.filter(pl.col("k").is_not_null() & (pl.int_range(pl.len()).over("k") < 2))')
+    assert "group_by" not in text
+
+
+def test_group_rows_keep_their_labels() -> None:
+    # pandas keeps each row's label, which reset_index() brings back as a column: porter does
+    # not know them after a filter, and says so rather than numbering the rows 0..n-1
+    result = convert(GROUPS + 'result = df.groupby("k").tail(1).reset_index()\n')
+    assert [s.key for s in result.todos] == ["frame.reset_index"], result.converted_text
+
+
+@pytest.mark.parametrize("expr", ['df.groupby("k").nth(slice(0, 2))', 'df.groupby("k").nth(0, dropna="any")',
+                                  'df.groupby("k").head(n=True)'])
+def test_group_rows_porter_cannot_read_are_todos(expr: str) -> None:
+    result = convert(GROUPS + f"result = {expr}\n")
+    assert result.todos, result.converted_text
+
+
 # -- rolling and expanding windows ---------------------------------------------------------------
 
 # NaN and None side by side, missing values in the middle, a run of missing values longer than

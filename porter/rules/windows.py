@@ -1,6 +1,7 @@
-"""Row-to-row operations on one column: shift, diff, cumsum / cumprod / cummax / cummin, and
-the same within groups (`groupby(...)[col].cumsum()`, `transform("sum")`) as window
-expressions (`.over(keys)`).
+"""Row-to-row operations on one column: shift, diff, cumsum / cumprod / cummax / cummin,
+rolling and expanding windows, and the same within groups (`groupby(...)[col].cumsum()`,
+`rank()`, `ffill()`, `transform("sum")`, `transform(lambda s: ...)`) as window expressions
+(`.over(keys)`); the rows of each group (`groupby(...).head(n)`, `tail`, `nth`) as filters.
 
 They read rows in order, which a LazyFrame keeps for column expressions (no group_by or join
 in between), so the expression sees the rows in pandas' order.
@@ -18,10 +19,10 @@ from porter.rules import rule
 from porter.rules.elementwise import _checked, body_expression, function_value
 from porter.rules.groupby import agg_expr
 from porter.translate.context import (
-    PandasCall, RuleContext, Unsupported, column_of, derived_column,
+    PandasCall, RuleContext, Unsupported, column_of, derive, derived_column, select_columns,
 )
 from porter.translate.values import (
-    Accessor, Column, Frame, Grouped, Opaque, Scalar, Value, fresh_token,
+    Accessor, Column, Grouped, Opaque, Scalar, Value, fresh_token,
 )
 
 CUMULATIVE = {"cumsum": "cum_sum", "cumprod": "cum_prod", "cummax": "cum_max", "cummin": "cum_min"}
@@ -351,6 +352,80 @@ def group_pct_change(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported(f"pct_change of a {column.dtype} column")
     expr = column.code.method("pct_change", *([periods] if periods != 1 else []))
     return derived_column(column, _window(grouped, expr.method("fill_nan", None)), dtype="float")
+
+
+# -- rows of each group: head, tail, nth ---------------------------------------------------------
+
+def _positions(grouped: Grouped, from_end: bool) -> Code:
+    """Each row's place in its group: 0, 1, ... from the first row, or 1, 2, ... from the last."""
+    places = emit.pl("int_range", emit.pl("len"), 0, -1) if from_end \
+        else emit.pl("int_range", emit.pl("len"))
+    return _over(grouped, places)
+
+
+def _group_rows(call: PandasCall, grouped: Grouped, keep: Code) -> Value:
+    """The rows `keep` selects, in the frame's order, with the columns pandas keeps: all of them,
+    or the selected ones (one selected column is a Series)."""
+    frame = grouped.frame
+    if grouped.dropna:  # pandas leaves out the rows of a missing key
+        keep = emit.binop(_keys_present(grouped), "&", keep)
+    for name in grouped.selection or ():
+        if frame.columns is not None and name not in frame.columns:
+            raise Unsupported(f"column {name!r} is not in the frame (pandas raises KeyError)")
+    # the rows keep their labels, which are no longer 0..n-1
+    rows = derive(frame, frame.code.method("filter", keep), same_rows=False)
+    if grouped.selection is None:
+        return rows
+    if grouped.single:
+        return column_of(rows, grouped.selection[0])
+    names = list(grouped.selection)
+    return select_columns(rows, rows.code.method("select", *names), names)
+
+
+@rule("groupby.head", "groupby.tail")
+def group_head(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.groupby(keys).head(n) / tail(n) -> df.filter(place in group < n), in the frame's order.
+
+    Handles: the rows keep the frame's order and every column (pandas: a filter, not an
+    aggregation); a negative n leaves out the last (head) or first (tail) -n rows of each
+    group; rows of a missing key are left out (dropna=True).
+    """
+    grouped = call.receiver
+    assert isinstance(grouped, Grouped)
+    ctx.reject_unknown(call, "n", positional=1)
+    n = call.const("n", 0, 5, kinds=(int,))
+    head = call.name == "head"
+    if n >= 0:
+        keep = emit.binop(_positions(grouped, not head), "<" if head else "<=", n)
+    else:  # all but the last (head) or first (tail) -n rows
+        keep = emit.binop(_positions(grouped, head), ">" if head else ">=", -n)
+    return _group_rows(call, grouped, keep)
+
+
+@rule("groupby.nth")
+def group_nth(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.groupby(keys).nth(i) / nth([i, j]) -> df.filter(place in group is i), in the frame's
+    order (pandas 3: a filter keeping every column).
+
+    Handles: negative positions count from the end; a list keeps the rows at any of its
+    positions once; rows of a missing key are left out (dropna=True).
+    Caveats: slices and dropna= are TODOs.
+    """
+    grouped = call.receiver
+    assert isinstance(grouped, Grouped)
+    ctx.reject_unknown(call, "n", positional=1)
+    wanted = call.const_values("n", 0, kinds=(int,))
+    if not wanted:
+        raise Unsupported("nth of a slice or of no positions")
+    tests = []
+    for places, from_end in ((sorted({i for i in wanted if i >= 0}), False),
+                             (sorted({-i for i in wanted if i < 0}), True)):
+        if places:
+            position = _positions(grouped, from_end)
+            tests.append(emit.binop(position, "==", places[0]) if len(places) == 1
+                         else position.method("is_in", places))
+    keep = tests[0] if len(tests) == 1 else emit.binop(tests[0], "|", tests[1])
+    return _group_rows(call, grouped, keep)
 
 
 # transform("cumsum") and the like: the group window of that name
