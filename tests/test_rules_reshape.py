@@ -59,6 +59,13 @@ def test_crosstab_ports_to_a_pivot_of_counts() -> None:
     'pd.crosstab(df["shop"], df["kind"], values=df["qty"], aggfunc="sum")',
     'pd.crosstab(df["shop"], df["kind"], values=df["qty"], aggfunc="max")',
     'pd.crosstab(df["kind"], df["shop"], values=df["qty"], aggfunc=np.mean)',
+    'pd.crosstab(df["shop"], df["kind"], margins=True)',
+    'pd.crosstab(df["shop"], df["kind"], margins=True, margins_name="Total")',
+    'pd.crosstab(df["shop"], df["size"], margins=True, normalize=True)',
+    'pd.crosstab(df["shop"], df["kind"], margins=True, normalize="index")',
+    'pd.crosstab(df["shop"], df["kind"], margins=True, normalize="columns")',
+    'pd.crosstab(df["shop"], [df["kind"], df["size"]])',  # flattened to kind_size
+    'pd.crosstab(df["shop"], [df["size"], df["kind"]], normalize="columns")',
 ])
 def test_crosstab_matches_pandas(call: str) -> None:
     # rows sorted by key (Éclair after the ASCII letters), missing keys dropped, 0 for "r"
@@ -94,9 +101,11 @@ def test_crosstab_of_number_labels_lowers_confidence() -> None:
 
 
 @pytest.mark.parametrize("call,reason", [
-    ('pd.crosstab(df["shop"], df["kind"], margins=True)', "margins"),
+    ('pd.crosstab(df["size"], df["kind"], margins=True)', "margins"),
+    ('pd.crosstab(df["shop"], df["kind"], margins=True, values=df["qty"], aggfunc="mean")',
+     "margins"),
+    ('pd.crosstab([df["shop"], df["size"]], df["kind"], margins=True)', "margins"),
     ('pd.crosstab(df["shop"], df["kind"], dropna=False)', "dropna=False"),
-    ('pd.crosstab(df["shop"], [df["kind"], df["size"]])', "two levels"),
     ('pd.crosstab(df["shop"], df["kind"], values=df["n"], aggfunc="sum")', "float"),
     ('pd.crosstab(df["shop"], df["kind"], values=df["qty"], aggfunc="count")', "count"),
     ('pd.crosstab(df["shop"], df["n"] > 3)', "bool"),

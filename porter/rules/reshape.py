@@ -72,14 +72,18 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: rows with a missing key are dropped; counts as Int64 and 0 for a combination
     that never occurs; rows sorted by the index keys, the new columns in the order of their
     values; the index keys stay label columns named like the Series (reset_index() brings them
-    back); normalize=True/"all"/"index"/"columns" divides as pandas divides (pandas_div);
-    values= with aggfunc mean or median (float cells, a group whose value is missing dropped, as
-    pandas drops it), and sum / min / max of a float column; several index Series.
-    Caveats: several columns Series (two levels of column labels), margins, dropna=False,
-    normalize with values, and sum / min / max / count of a column that is not known to be float
-    (pandas makes the cells float when one combination is missing) are TODOs. The new columns
-    are named by their values as text; boolean and datetime column keys are TODOs (Polars
-    names them true / 2024-01-01 00:00:00.000000).
+    back); normalize=True/"all"/"index"/"columns" divides as pandas divides (pandas_div, each
+    count divided once by its total); margins=True adds the total column and row (margins_name)
+    to the counts, and with normalize the margins pandas keeps; values= with aggfunc mean or
+    median (float cells, a group whose value is missing dropped, as pandas drops it), and sum /
+    min / max of a float column; several index Series; several columns Series are flattened to
+    one column per combination named b_k (pandas keeps two levels of column labels: 0.9).
+    Caveats: dropna=False, normalize or margins with values, margins with several keys or an
+    index key not known to be text, and sum / min / max / count of a column not known to be
+    float (pandas makes the cells float when one combination is missing) are TODOs. The new
+    columns are named by their values as text; boolean and datetime column keys are TODOs
+    (Polars names them true / 2024-01-01 00:00:00.000000). margins=True on no rows raises in
+    Polars where pandas gives an empty table.
     """
     ctx.reject_unknown(call, "index", "columns", "values", "rownames", "colnames", "aggfunc",
                        "margins", "margins_name", "dropna", "normalize", positional=10)
@@ -90,34 +94,39 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
         check_same_rows(s, frame)
     row_names = _key_names(call, "rownames", 3, rows, "row")
     col_names = _key_names(call, "colnames", 4, cols, "col")
-    if len(cols) > 1:
-        raise Unsupported("several columns Series: pandas makes two levels of column labels")
     names = [*row_names, *col_names]
     if len(set(names)) != len(names):
         raise Unsupported("two keys with the same name")
-    if call.const("margins", 6, False, kinds=(bool,)):
-        raise Unsupported("margins=True (the total row and column)")
-    call.const("margins_name", 7, "All", kinds=(str,))
+    margins = call.const("margins", 6, False, kinds=(bool,))
+    margins_name = call.const("margins_name", 7, "All", kinds=(str,))
     if call.const("dropna", 8, True, kinds=(bool,)) is not True:
         raise Unsupported("dropna=False keeps missing keys and combinations no row has")
     normalize = _normalize_how(call.const("normalize", 9, False, kinds=(bool, str, int)))
     has_values, has_agg = call.has("values", 2), call.has("aggfunc", 5)
     if has_values != has_agg:
         raise Unsupported("values= without aggfunc= or aggfunc= without values= (pandas raises)")
+    if margins and (has_values or len(rows) > 1 or len(cols) > 1):
+        raise Unsupported("margins with values= or with several keys")
+    if margins and rows[0].dtype != "str":
+        raise Unsupported("margins with an index key not known to be text (the total row's "
+                          "label goes into it)")
 
-    key = cols[0]
-    if key.dtype in ("bool", "datetime", "date"):
-        raise Unsupported(f"a {key.dtype} columns key: Polars names the new columns "
-                          "differently from pandas' labels")
-    if key.dtype not in ("str", "enum"):
-        ctx.lower("the new columns are named by their values as text (pandas keeps the values)",
-                  0.95)
-    for s in (*rows, key):
+    for key in cols:
+        if key.dtype in ("bool", "datetime", "date"):
+            raise Unsupported(f"a {key.dtype} columns key: Polars names the new columns "
+                              "differently from pandas' labels")
+        if key.dtype not in ("str", "enum"):
+            ctx.lower("the new columns are named by their values as text (pandas keeps the "
+                      "values)", 0.95)
+    if len(cols) > 1:
+        ctx.lower("pandas keeps two levels of column labels; porter names each column by its "
+                  "values joined with _", 0.9)
+    for s in (*rows, *cols):
         if s.dtype == "category":
             ctx.lower("category keys sort by their categories in pandas; porter sorts by text, "
                       "which is the same for categories made by astype('category')", 0.9)
 
-    pairs: list[tuple[Column, str]] = list(zip([*rows, key], names))
+    pairs: list[tuple[Column, str]] = list(zip([*rows, *cols], names))
     value_name = "len"
     if has_values:
         values = call.arg("values", 2)
@@ -135,48 +144,79 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
         elif how not in ("mean", "median"):
             raise Unsupported(f"aggfunc {how!r}")
         value_name = values.name if values.name is not None else "values"
-        pairs.append((values, value_name))
     while value_name in names:
         value_name = f"_{value_name}"
     if has_values:
-        pairs[-1] = (pairs[-1][0], value_name)
+        pairs.append((values, value_name))
 
     plain = all(s.code.text == emit.col(n).text for s, n in pairs)
     code = frame.code if plain else frame.code.method(
         "select", *(s.code if s.code.text == emit.col(n).text else s.code.method("alias", n)
                     for s, n in pairs))
     code = code.method("drop_nulls", names).method("group_by", names)
+    fill: Any = None
     if has_values:
-        code = code.method("agg", agg_expr(emit.col(value_name), how, pairs[-1][0].dtype))
+        code = code.method("agg", agg_expr(emit.col(value_name), how, values.dtype))
         if how in ("mean", "median", "min", "max"):
             code = code.method("drop_nulls", value_name)  # pandas drops a group whose value is missing
-        fill: Any = None
     else:
         count = emit.pl("len").method("cast", emit.atom("pl.Int64"))
         if value_name != "len":
             count = count.method("alias", value_name)
         code = code.method("agg", count)
         fill = 0
-        if normalize is not None:
+        if normalize is not None and not margins:
             total = emit.col(value_name).method("sum")
             if normalize == "index":
                 total = total.method("over", emit.names_arg(row_names))
             elif normalize == "columns":
-                total = total.method("over", col_names[0])
+                total = total.method("over", emit.names_arg(col_names))
             # each count divided by its total once, as pandas divides the table
             code = code.method("with_columns", emit.call(DIVIDE_FUNCTION, emit.col(value_name),
                                                          total))
             fill = 0.0
     index = emit.names_arg(row_names)
     # the new columns appear in the order the pivot meets their values: sorted first
-    code = code.method("sort", col_names[0]).method("collect").method(
-        "pivot", on=col_names[0], index=index, values=value_name)
+    code = code.method("sort", emit.names_arg(col_names))
+    on = col_names[0]
+    if len(cols) > 1:  # one column per combination, named as porter flattens two levels
+        on = "__columns"
+        while on in names or on == value_name:
+            on = f"_{on}"
+        code = code.method("with_columns", emit.pl(
+            "format", "_".join("{}" for _ in col_names), *col_names).method("alias", on))
+    code = code.method("collect").method("pivot", on=on, index=index, values=value_name)
     code = code.method("sort", index)
     if fill is not None:  # a combination no row has: 0 in pandas
         code = code.method("with_columns", emit.pl("exclude", index).method("fill_null", fill))
+    if margins:
+        code = _margins(code, row_names[0], margins_name, normalize)
     dtypes = tuple((n, s.dtype) for s, n in zip(rows, row_names) if s.dtype is not None)
     return Frame(code.method("lazy"), columns=None, index=tuple(row_names), dtypes=dtypes,
                  labels_intact=False)
+
+
+def _margins(code: Code, key: str, name: str, normalize: str | None) -> Code:
+    """The total column and row of a table of counts (one index key), then pandas'
+    normalisation: every cell by the total ("all"), each row by its total with the total row
+    kept and the total column dropped ("index"), each column by its total with the total column
+    kept and the total row dropped ("columns"); each an exact division of two counts."""
+    cells = emit.pl("exclude", key)
+    code = code.method("with_columns", emit.pl("sum_horizontal", cells).method("alias", name))
+    total_row = emit.atom("t").method("select", emit.pl("lit", name).method("alias", key),
+                                      cells.method("sum"))
+    code = code.method("pipe", emit.atom(
+        f"lambda t: pl.concat([t, {total_row.text}])"))
+    if normalize == "all":
+        code = code.method("with_columns", emit.call(
+            DIVIDE_FUNCTION, cells, emit.col(name).method("last")))
+    elif normalize == "index":
+        code = code.method("with_columns", emit.call(
+            DIVIDE_FUNCTION, emit.pl("exclude", key, name), emit.col(name))).method("drop", name)
+    elif normalize == "columns":
+        code = code.method("with_columns", emit.call(
+            DIVIDE_FUNCTION, cells, cells.method("last"))).method("head", -1)
+    return code
 
 
 # -- melt ---------------------------------------------------------------------------------------
