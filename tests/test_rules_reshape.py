@@ -59,6 +59,7 @@ def test_crosstab_ports_to_a_pivot_of_counts() -> None:
     'pd.crosstab(df["shop"], df["kind"], values=df["qty"], aggfunc="sum")',
     'pd.crosstab(df["shop"], df["kind"], values=df["qty"], aggfunc="max")',
     'pd.crosstab(df["kind"], df["shop"], values=df["qty"], aggfunc=np.mean)',
+    'pd.crosstab(df["qty"] > 2, df["kind"])',  # NaN > 2 is False, a key like any other
     'pd.crosstab(df["shop"], df["kind"], margins=True)',
     'pd.crosstab(df["shop"], df["kind"], margins=True, margins_name="Total")',
     'pd.crosstab(df["shop"], df["size"], margins=True, normalize=True)',
@@ -192,6 +193,7 @@ def test_get_dummies_ports_to_one_expression_per_category() -> None:
     'pd.get_dummies(df["shop"])',
     'pd.get_dummies(df["size"], prefix="size", drop_first=True)',
     'pd.get_dummies(df["n"] > 4)',
+    'pd.get_dummies(df["qty"] < 3)',  # NaN < 3 is False
     'pd.get_dummies(df[df["n"] > 100], columns=["shop"])',
     'pd.get_dummies(df[df["n"] > 6], columns=["kind"], drop_first=True)',
 ])

@@ -149,10 +149,11 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
     if has_values:
         pairs.append((values, value_name))
 
-    plain = all(s.code.text == emit.col(n).text for s, n in pairs)
+    # a comparison that met a missing value is False in pandas (a key like any other)
+    exprs = [(ctx.bool_expr(s, frame), n) for s, n in pairs]
+    plain = all(e.text == emit.col(n).text for e, n in exprs)
     code = frame.code if plain else frame.code.method(
-        "select", *(s.code if s.code.text == emit.col(n).text else s.code.method("alias", n)
-                    for s, n in pairs))
+        "select", *(e if e.text == emit.col(n).text else e.method("alias", n) for e, n in exprs))
     code = code.method("drop_nulls", names).method("group_by", names)
     fill: Any = None
     if has_values:
@@ -398,9 +399,9 @@ def get_dummies(call: PandasCall, ctx: RuleContext) -> Value:
             raise Unsupported("a list or dict of prefixes for a Series")
         _check_encodable(data.dtype, ctx)
         name = data.name if data.name is not None else "values"
+        expr = ctx.bool_expr(data, data.frame)  # a comparison with a missing value is False
         source = data.frame.code.method(
-            "select", data.code if data.code.text == emit.col(name).text
-            else data.code.method("alias", name))
+            "select", expr if expr.text == emit.col(name).text else expr.method("alias", name))
         exprs = _dummies(name, prefix, sep, cast, drop_first, dummy_na)
         code = source.method("collect").method(
             "pipe", emit.atom(f"lambda d: d.select({', '.join(e.text for e in exprs)})"))
