@@ -164,6 +164,15 @@ def test_melt_todo(call: str, reason: str) -> None:
     assert reason in text
 
 
+def test_melt_of_a_crosstab_names_the_variable_after_its_columns_axis() -> None:
+    # pandas' crosstab names its columns axis "kind": melt calls the variable column "kind"
+    source = FRAME + ('t = pd.crosstab(df["shop"], df["kind"]).reset_index()\n'
+                      'result = t.melt(id_vars="shop", value_vars=["p", "q"])\n')
+    site = next(s for s in convert(source).sites if s.key == "frame.melt")
+    assert site.confidence <= 0.95 and "columns.name" in site.message
+    differential(source.replace('value_vars=["p", "q"]', 'value_vars=["p", "q"], var_name="kind"'))
+
+
 def test_melt_without_value_vars_needs_the_columns() -> None:
     source = "import pandas as pd\ndf = pd.read_csv('kiosks.csv')\nresult = df.melt(id_vars='k')\n"
     assert _todo_keys(source) == ["frame.melt"]

@@ -245,7 +245,9 @@ def melt(call: PandasCall, ctx: RuleContext) -> Value:
     floats give floats in both; value_vars left out means every other column (when known).
     Caveats: value columns mixing text, numbers or booleans (pandas keeps each value as it is,
     an object column; Polars casts them to one type) are TODOs, and lower the confidence when
-    their types are unknown; ignore_index=False, col_level, a frame with an index (reset_index()
+    their types are unknown; without var_name, a frame whose columns porter does not know may
+    carry a columns.name (a crosstab or pivot_table result), which pandas uses instead of
+    "variable" (0.95); ignore_index=False, col_level, a frame with an index (reset_index()
     first) and value_vars left out when the columns are unknown are TODOs.
     """
     offset = 1 if call.receiver is None else 0
@@ -264,6 +266,10 @@ def melt(call: PandasCall, ctx: RuleContext) -> Value:
     id_vars = _names_or_none(call, "id_vars", 0 + offset) or []
     value_vars = _names_or_none(call, "value_vars", 1 + offset)
     var_name = call.const("var_name", 2 + offset, None, kinds=(str,))
+    if var_name is None and frame.columns is None:
+        ctx.lower("pandas names the variable column after the frame's columns.name when it has "
+                  "one (a crosstab or pivot_table result, even after reset_index()); porter "
+                  "does not know this frame's columns: pass var_name= to be sure", 0.95)
     var_name = "variable" if var_name is None else var_name
     value_name = call.const("value_name", 3 + offset, "value", kinds=(str,))
     columns = frame.columns
