@@ -119,6 +119,13 @@ def test_crosstab_todo(call: str, reason: str) -> None:
     assert reason in text
 
 
+def test_crosstab_left_to_pandas_keeps_its_index() -> None:
+    # the row keys are pandas' index: a TODO'd crosstab stays a pandas frame (from_pandas
+    # would drop them)
+    result = differential(FRAME + 'result = pd.crosstab(df["size"], df["kind"], margins=True)\n')
+    assert [s.key for s in result.todos] == ["pd.crosstab"]
+
+
 # -- melt ---------------------------------------------------------------------------------------
 
 def test_melt_ports_to_unpivot_in_pandas_order() -> None:
