@@ -113,6 +113,7 @@ def test_crosstab_of_number_labels_lowers_confidence() -> None:
     ('pd.crosstab(df["shop"], df["kind"], normalize="index", values=df["qty"], aggfunc="mean")',
      "normalize"),
     ('pd.crosstab(df["shop"].values, df["kind"])', "not columns"),
+    ('pd.crosstab(df["shop"], df["kind"], values=df["kind"], aggfunc="max")', "str column"),
 ])
 def test_crosstab_todo(call: str, reason: str) -> None:
     text = check_todo(FRAME + f"result = {call}\n", "pd.crosstab")
@@ -234,6 +235,7 @@ def test_get_dummies_todo(call: str, reason: str) -> None:
     'pd.crosstab(df["shop"], df["kind"], values=df["qty"])',  # pandas raises
     'df.melt(id_vars="shop", value_vars=["n"], value_name="shop")',  # pandas raises
     'pd.qcut(df["n"], 3, labels=["a", "b"])',  # pandas raises
+    'pd.get_dummies(df, columns="kind")',  # pandas raises
 ])
 def test_forms_left_to_pandas(call: str) -> None:
     keys = _todo_keys(FRAME + f"result = {call}\n")

@@ -20,7 +20,7 @@ from porter.rules.io_options import DIVIDE_FUNCTION
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, check_same_rows, column_names, derived_column,
 )
-from porter.translate.values import Column, Frame, Items, Opaque, Value
+from porter.translate.values import Column, Frame, Items, Opaque, PandasValue, Value
 
 _NUMBER_TYPES = ("int", "float")
 
@@ -30,6 +30,9 @@ _NUMBER_TYPES = ("int", "float")
 def _series_list(value: Value, what: str) -> list[Column]:
     """The Series given as the crosstab's index or columns: one, or a list written out."""
     items = list(value.items) if isinstance(value, Items) else [value]
+    if any(isinstance(v, PandasValue) for v in items):
+        raise Unsupported(f"the {what} Series come from a frame an earlier statement left on "
+                          "pandas")
     if not items or not all(isinstance(v, Column) and not v.element for v in items):
         raise Unsupported(f"the {what} are not columns of a frame porter tracks (arrays and "
                           "lists are labelled by position, which has no lazy form)")
@@ -134,6 +137,8 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
             raise Unsupported("values= that is not a column of the frame")
         check_same_rows(values, frame)
         how = how_name(call.arg("aggfunc", 5))
+        if values.dtype not in (None, *_NUMBER_TYPES, "bool"):
+            raise Unsupported(f"aggfunc {how!r} of a {values.dtype} column")
         if normalize is not None:
             raise Unsupported("normalize with values= and aggfunc=")
         if how in ("sum", "min", "max"):
@@ -418,6 +423,9 @@ def get_dummies(call: PandasCall, ctx: RuleContext) -> Value:
     frame = data
     if frame.index:
         raise Unsupported("the frame has an index: call reset_index() first")
+    if call.has("columns", 4) and not isinstance(
+            call.const("columns", 4, None, kinds=(list, tuple)), (list, tuple, type(None))):
+        raise Unsupported("columns= must be a list")  # pandas raises for a single name
     encode = _names_or_none(call, "columns", 4)
     if encode is None:
         if frame.columns is None or any(frame.dtype(c) is None for c in frame.columns):
