@@ -181,9 +181,28 @@ def test_melt_of_a_crosstab_names_the_variable_after_its_columns_axis() -> None:
     differential(source.replace('value_vars=["p", "q"]', 'value_vars=["p", "q"], var_name="kind"'))
 
 
-def test_melt_without_value_vars_needs_the_columns() -> None:
+def test_melt_without_value_vars_reads_the_columns_at_run_time() -> None:
     source = "import pandas as pd\ndf = pd.read_csv('kiosks.csv')\nresult = df.melt(id_vars='k')\n"
-    assert _todo_keys(source) == ["frame.melt"]
+    result = convert(source)
+    assert not result.todos
+    assert '.sort(pl.col("variable").cast(pl.Enum(df.collect_schema().names())), "__melt_row")' \
+        in result.converted_text
+    assert next(s for s in result.sites if s.key == "frame.melt").confidence == 0.9
+
+
+def test_melt_of_unknown_columns_matches_pandas() -> None:
+    # a crosstab's columns are its data: melt takes every column but the key, in order
+    source = FRAME + ('t = pd.crosstab(df["shop"], df["kind"]).reset_index()\n'
+                      'result = t.melt(id_vars="shop", var_name="kind")\n')
+    result = differential(source)
+    assert "collect_schema" in result.converted_text
+
+
+def test_melt_of_unknown_columns_of_a_chain_is_a_todo() -> None:
+    source = FRAME + ('result = pd.crosstab(df["shop"], df["kind"]).reset_index()'
+                      '.melt(id_vars="shop", var_name="kind")\n')
+    text = check_todo(source, "frame.melt")
+    assert "value_vars left out" in text
 
 
 # -- get_dummies --------------------------------------------------------------------------------

@@ -253,7 +253,8 @@ def melt(call: PandasCall, ctx: RuleContext) -> Value:
     their types are unknown; without var_name, a frame whose columns porter does not know may
     carry a columns.name (a crosstab or pivot_table result), which pandas uses instead of
     "variable" (0.95); ignore_index=False, col_level, a frame with an index (reset_index()
-    first) and value_vars left out when the columns are unknown are TODOs.
+    first) are TODOs. value_vars left out when porter does not know the frame's columns reads
+    them from the frame's schema at run time (a frame held in a name; 0.9, the types unknown).
     """
     offset = 1 if call.receiver is None else 0
     frame = call.receiver if offset == 0 else call.arg("frame", 0)
@@ -278,17 +279,20 @@ def melt(call: PandasCall, ctx: RuleContext) -> Value:
     var_name = "variable" if var_name is None else var_name
     value_name = call.const("value_name", 3 + offset, "value", kinds=(str,))
     columns = frame.columns
-    if value_vars is None:
-        if columns is None:
-            raise Unsupported("value_vars left out and the frame's columns are not known: list "
-                              "them (pandas' row order follows them)")
+    # value_vars left out on a frame whose columns porter does not know: every other column,
+    # in the order the frame's schema gives at run time (collect_schema reads no rows)
+    every_other = value_vars is None and columns is None
+    if every_other and not frame.code.text.isidentifier():
+        raise Unsupported("value_vars left out and the frame's columns are not known: list "
+                          "them (pandas' row order follows them)")
+    if value_vars is None and columns is not None:
         value_vars = [c for c in columns if c not in id_vars]
-    if not value_vars:
+    if value_vars is not None and not value_vars:
         raise Unsupported("no value columns")
-    if set(value_vars) & set(id_vars) or len(set(value_vars)) != len(value_vars) \
+    if set(value_vars or ()) & set(id_vars) or len(set(value_vars or ())) != len(value_vars or ()) \
             or len(set(id_vars)) != len(id_vars):
         raise Unsupported("a column listed twice")
-    if columns is not None:
+    if columns is not None and value_vars is not None:
         absent = [c for c in (*id_vars, *value_vars) if c not in columns]
         if absent:
             raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
@@ -296,21 +300,30 @@ def melt(call: PandasCall, ctx: RuleContext) -> Value:
             raise Unsupported(f"value_name {value_name!r} is a column (pandas raises)")
     if var_name in (*id_vars, value_name) or value_name in id_vars:
         raise Unsupported("var_name or value_name repeats a column name")
-    value_dtype = _common_value_dtype(frame, value_vars, ctx)
+    if value_vars is None:
+        ctx.lower("the value columns' types are not known: pandas keeps each value as it is "
+                  "when they mix text, numbers or booleans (an object column), Polars casts "
+                  "them to one type", 0.9)
+        value_dtype = None
+    else:
+        value_dtype = _common_value_dtype(frame, value_vars, ctx)
 
     options: dict[str, object] = {"index": emit.names_arg(id_vars)} if id_vars else {}
     if var_name != "variable":
         options["variable_name"] = var_name
     if value_name != "value":
         options["value_name"] = value_name
-    if len(value_vars) == 1:  # one piece: Polars keeps the rows in order
+    if value_vars is not None and len(value_vars) == 1:  # one piece: rows stay in order
         code = frame.code.method("unpivot", value_vars[0], **options)
     else:
         options["index"] = [*id_vars, _MELT_ROW]
-        code = (frame.code.method("with_row_index", _MELT_ROW)
-                .method("unpivot", value_vars, **options)
-                .method("sort", emit.col(var_name).method("cast", emit.pl("Enum", value_vars)),
-                        _MELT_ROW)
+        # the value columns in the frame's order (the id columns among them are never values)
+        order = emit.pl("Enum", value_vars if value_vars is not None else
+                        frame.code.method("collect_schema").method("names"))
+        code = frame.code.method("with_row_index", _MELT_ROW)
+        code = code.method("unpivot", value_vars, **options) if value_vars is not None \
+            else code.method("unpivot", **options)
+        code = (code.method("sort", emit.col(var_name).method("cast", order), _MELT_ROW)
                 .method("drop", _MELT_ROW))
     dtypes = [(c, frame.dtype(c)) for c in id_vars] + [(var_name, "str"), (value_name, value_dtype)]
     return Frame(code, columns=(*id_vars, var_name, value_name), labels_intact=True,
