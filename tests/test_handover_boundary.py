@@ -371,3 +371,17 @@ def test_two_names_for_one_frame_changed_by_a_function_stay_one_frame():
         view = df
         add_flags(view)
         ''', "df", "view")
+
+
+def test_a_column_set_to_a_name_is_not_taken_for_an_alias():
+    # `df["flag"] = False` once read as `df = False` (an alias of the name False): an internal
+    # error; `df["k"] = other` is no alias either
+    both('''
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        heavy = df[df["tons"] > 1]
+        default = "none"
+        df["flag"] = False
+        df["note"] = default
+        heavy["flag"] = True
+        ''', "df", "heavy")

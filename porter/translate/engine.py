@@ -865,7 +865,11 @@ class _Walker:
     def bind(self, name: str, value: Value, env: dict[str, Value], indent: str) -> tuple[str | None, list[SiteDraft]]:
         """`name = value`: remember what the name now holds and write the assignment."""
         code = value.code
-        source = self.current_small.value if isinstance(self.current_small, cst.Assign) else None
+        small = self.current_small
+        # `name = other`: the statement binds the name itself (not `df["c"] = flag`)
+        source = small.value if isinstance(small, cst.Assign) and len(small.targets) == 1 \
+            and isinstance(small.targets[0].target, cst.Name) \
+            and small.targets[0].target.value == name else None
         if isinstance(value, Frame) and isinstance(source, cst.Name) and source.value != name \
                 and self.changed_later(name, source.value):
             # `view = df` and one of them changed in place: both names are one object in
