@@ -209,7 +209,7 @@ def test_melt_of_unknown_columns_of_a_chain_is_a_todo() -> None:
 
 def test_get_dummies_ports_to_one_expression_per_category() -> None:
     check_ports(FRAME + 'result = pd.get_dummies(df, columns=["kind"])\n',
-                '.collect().pipe(lambda d: d.select(pl.exclude(["kind"]), '
+                '.collect().pipe(lambda d: d.select(pl.exclude("kind"), '
                 '*(pl.col("kind").eq_missing(v).alias(f"kind_{v}") '
                 'for v in d["kind"].drop_nulls().unique().sort())))')
 
@@ -242,6 +242,7 @@ def test_get_dummies_matches_pandas(call: str) -> None:
     ('pd.get_dummies(df.astype({"kind": "category"}), columns=["kind"])', "category"),
     ('pd.get_dummies(df, columns=["kind"], dummy_na=True, drop_first=True)', "dummy_na"),
     ('pd.get_dummies(df.groupby("shop")[["kind"]].first(), columns=["kind"])', "index"),
+    ('pd.get_dummies(df.groupby("shop")[["kind"]].first()["kind"])', "index"),
 ])
 def test_get_dummies_todo(call: str, reason: str) -> None:
     text = check_todo(FRAME + f"result = {call}\n", "pd.get_dummies")

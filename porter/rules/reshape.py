@@ -417,6 +417,9 @@ def get_dummies(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(data, Column):
         if data.element:
             raise Unsupported("get_dummies inside a lambda")
+        if data.frame.index:
+            raise Unsupported("a Series with an index (pandas keeps it on the dummies): call "
+                              "reset_index() on its frame first")
         if call.has("columns", 4):
             raise Unsupported("columns= with a Series")
         if isinstance(prefix, (list, tuple, dict)):
@@ -466,7 +469,7 @@ def get_dummies(call: PandasCall, ctx: RuleContext) -> Value:
         prefixes = [prefix if prefix is not None else c for c in encode]
     if not encode:
         return frame
-    exprs = [emit.pl("exclude", encode)]
+    exprs = [emit.pl("exclude", emit.names_arg(encode))]
     for c, p in zip(encode, prefixes):
         exprs += _dummies(c, p, sep, cast, drop_first, dummy_na)
     code = frame.code.method("collect").method(
