@@ -120,6 +120,21 @@ def test_crosstab_todo(call: str, reason: str) -> None:
     assert reason in text
 
 
+@pytest.mark.parametrize("call", [
+    'pd.crosstab(df["band"], df["kind"])',
+    'pd.crosstab(df["shop"], df["band"])',  # "mid" is in no row of shop c: 0
+    'pd.crosstab(df["shop"], df["band"], normalize="columns")',
+])
+def test_crosstab_of_ordered_labels_matches_pandas(call: str) -> None:
+    # pd.cut's labels: rows and columns in the labels' order ("lo" < "mid" < "hi"), not by
+    # text; a label no row has ("top") is left out, as pandas leaves out unobserved categories
+    source = FRAME + ('df["band"] = pd.cut(df["n"], bins=[0, 3, 6, 8, 99], '
+                      'labels=["lo", "mid", "hi", "top"])\n'
+                      f'result = {call}\n')
+    result = differential(source)
+    assert not result.todos, result.converted_text
+
+
 def test_crosstab_left_to_pandas_keeps_its_index() -> None:
     # the row keys are pandas' index: a TODO'd crosstab stays a pandas frame (from_pandas
     # would drop them)
@@ -224,6 +239,10 @@ def test_get_dummies_ports_to_one_expression_per_category() -> None:
     'pd.get_dummies(df, columns=["shop", "kind"], prefix={"kind": "k", "shop": "s"})',
     'pd.get_dummies(df, columns=["shop", "kind"], prefix="x")',
     'pd.get_dummies(df, columns=["shop"], dummy_na=True)',
+    'pd.get_dummies(df, columns=["shop"], prefix="{größe}", prefix_sep="→")',  # braces: no f-string
+    """pd.get_dummies(df, columns=["kind"], prefix="it's", prefix_sep='"')""",
+    'pd.get_dummies(df["kind"], prefix="k", dummy_na=True)',
+    'pd.get_dummies(df[df["n"] > 100]["kind"])',
     'pd.get_dummies(df)',
     'pd.get_dummies(df[["n", "kind"]], columns=["kind"], dtype=float)',
     'pd.get_dummies(df["shop"])',
