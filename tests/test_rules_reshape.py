@@ -135,6 +135,14 @@ def test_crosstab_of_ordered_labels_matches_pandas(call: str) -> None:
     assert not result.todos, result.converted_text
 
 
+def test_a_table_used_twice_is_not_collected_again() -> None:
+    # the pivot and the dummies are built on collected data: the frame is in memory already
+    text = convert(FRAME + 'ct = pd.crosstab(df["shop"], df["kind"])\n'
+                           'x = pd.get_dummies(df, columns=["kind"])\n'
+                           'print(ct)\nprint(ct.shape)\nprint(x)\nprint(len(x))\n').converted_text
+    assert "".join(text.split()).count(".lazy().collect().lazy()") == 0, text
+
+
 def test_crosstab_left_to_pandas_keeps_its_index() -> None:
     # the row keys are pandas' index: a TODO'd crosstab stays a pandas frame (from_pandas
     # would drop them)

@@ -1284,6 +1284,12 @@ def _is_collected(code: Code) -> bool:
     """Already data in memory: collected, or a frame written out in the script."""
     if code.text.endswith(".collect().lazy()"):
         return True
+    steps = [s.strip() for s in code.steps]
+    if steps and steps[-1] == ".lazy()":
+        # collected, then eager DataFrame steps (a pivot, a select of dummies), then lazy again
+        eager = [i for i, s in enumerate(steps) if s.startswith(".collect(")]
+        if eager and not any(s.startswith(".lazy(") for s in steps[eager[-1] + 1:-1]):
+            return True
     base = code.base if code.base is not None else code.text
     if base.startswith("pl.from_pandas(") and [s.strip() for s in code.steps] == [".lazy()"]:
         return True  # a frame pandas made: in memory already
