@@ -146,18 +146,6 @@ def test_group_windows_match_pandas(expr: str) -> None:
     assert not result.todos, result.converted_text
 
 
-@pytest.mark.parametrize("expr, key", [
-    ('df.groupby("k")["v"].rolling(2, min_periods=1).mean()', "groupby.rolling"),
-    ('df.groupby("g")["n"].expanding().sum()', "groupby.expanding"),
-])
-def test_group_rolling_stays_pandas(expr: str, key: str) -> None:
-    # pandas orders the result by group, with the key in the index: only reset_index(level=0,
-    # drop=True) assigned back puts it in row order, which porter does not follow yet
-    result = differential(GROUPED + f'df["w"] = {expr}.reset_index(level=0, drop=True)\n'
-                          'result = df\n')
-    assert key in {s.key for s in result.todos}
-
-
 def test_group_windows_on_an_empty_frame() -> None:
     differential(EMPTY + 'df["w"] = df.groupby("k")["v"].transform("sum")\n'
                  'df["c"] = df.groupby("k").cumcount()\nresult = df\n')
@@ -331,6 +319,70 @@ def test_group_rows_keep_their_labels() -> None:
 def test_group_rows_porter_cannot_read_are_todos(expr: str) -> None:
     result = convert(GROUPS + f"result = {expr}\n")
     assert result.todos, result.converted_text
+
+
+# -- rolling and expanding windows within groups -----------------------------------------------------
+
+@pytest.mark.parametrize("frame", [pytest.param(GROUPS, id="ties and missing values"),
+                                   pytest.param(ONE_GROUP_EMPTY, id="no rows")])
+@pytest.mark.parametrize("expr", [
+    'df.groupby("k")["v"].rolling(2, min_periods=1).mean()', 'df.groupby("k")["v"].rolling(2).sum()',
+    'df.groupby("k")["n"].rolling(3, min_periods=1).max()', 'df.groupby("g")["v"].rolling(2, min_periods=1).min()',
+    'df.groupby("k")["v"].rolling(3, min_periods=1).median()', 'df.groupby("g")["v"].rolling(3, min_periods=2).std()',
+    'df.groupby("g")["n"].rolling(2).var()', 'df.groupby("k")["v"].rolling(2, min_periods=1).count()',
+    'df.groupby("g")["v"].rolling(3, min_periods=1, center=True).mean()',
+    'df.groupby("k")["v"].expanding().sum()', 'df.groupby("g")["n"].expanding(2).mean()',
+    'df.groupby("k", sort=False)["v"].rolling(2, min_periods=1).mean()',
+    'df.groupby("k", dropna=False)["v"].rolling(2, min_periods=1).sum()',
+])
+@pytest.mark.parametrize("labels", [".reset_index(level=0, drop=True)", ".droplevel(0)",
+                                    '.reset_index(level="k", drop=True)'])
+def test_group_rolling_assigned_back_matches_pandas(frame: str, expr: str, labels: str) -> None:
+    # pandas orders the result by group; assigned back it is aligned on the row labels
+    if "groupby(\"g\")" in expr:
+        labels = labels.replace('"k"', '"g"')
+    result = differential(frame + f'df["w"] = {expr}{labels}\nresult = df\n')
+    assert not result.todos, result.converted_text
+
+
+def test_group_rolling_over_two_keys_assigned_back_matches_pandas() -> None:
+    result = differential(GROUPS + 'df["w"] = df.groupby(["k", "g"])["v"].rolling(2, min_periods=1)'
+                          '.mean().reset_index(level=[0, 1], drop=True)\nresult = df\n')
+    assert not result.todos, result.converted_text
+
+
+def test_group_rolling_is_the_window_over_the_key_in_the_frames_order() -> None:
+    check_ports(GROUPS + 'df["w"] = df.groupby("k")["v"].rolling(3, min_periods=1).mean()'
+                '.reset_index(level=0, drop=True)\n',
+                'w=pl.when(pl.col("k").is_not_null()).then(pl.col("v").rolling_mean(3, min_samples=1).over("k"))')
+
+
+@pytest.mark.parametrize("expr", [
+    'df.groupby("k")["v"].rolling(2, min_periods=1).mean().tolist()',
+    'df.groupby("k", sort=False)["n"].expanding().max().tolist()',
+    'df.groupby("k")["v"].rolling(2, min_periods=1).sum().reset_index(level=0, drop=True).tolist()',
+    '(df.groupby("k")["v"].rolling(2, min_periods=1).sum().droplevel(0) * 2).tolist()',
+])
+def test_group_rolling_elsewhere_keeps_pandas_group_order(expr: str) -> None:
+    differential(GROUPS + f"result = {expr}\n")
+
+
+@pytest.mark.parametrize("statement, key", [
+    # all labels dropped: pandas assigns by position, the values land on other rows
+    ('df["w"] = df.groupby("k")["v"].rolling(2).sum().reset_index(drop=True)', "groupby.window.reset_index"),
+    ('df["w"] = df.groupby(["k", "g"])["v"].rolling(2).sum().reset_index(level=0, drop=True)',
+     "groupby.window.reset_index"),
+    ('df["w"] = df.groupby("k")["v"].rolling(2).quantile(0.5).reset_index(level=0, drop=True)',
+     "groupby.rolling.quantile"),
+    ('df["w"] = df.groupby("k")["v"].expanding().median().reset_index(level=0, drop=True)',
+     "groupby.expanding.median"),
+    # another frame: pandas aligns the labels it shares
+    ('d2 = df[df["n"] > 1].copy()\nd2["w"] = df.groupby("k")["v"].rolling(2).sum().reset_index(level=0, drop=True)',
+     "frame.setitem"),
+])
+def test_group_rolling_forms_porter_cannot_place_stay_pandas(statement: str, key: str) -> None:
+    result = differential(GROUPS + statement + "\nresult = df\n")
+    assert key in {s.key for s in result.todos}, result.converted_text
 
 
 # -- rolling and expanding windows ---------------------------------------------------------------

@@ -9,7 +9,7 @@ in between), so the expression sees the rows in pandas' order.
 
 from __future__ import annotations
 
-from dataclasses import replace
+from dataclasses import dataclass, field, replace
 
 import libcst as cst
 
@@ -22,7 +22,7 @@ from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_of, derive, derived_column, select_columns,
 )
 from porter.translate.values import (
-    Accessor, Column, Grouped, Opaque, Scalar, Value, fresh_token,
+    Accessor, Column, Frame, Grouped, Opaque, Scalar, Value, fresh_token,
 )
 
 CUMULATIVE = {"cumsum": "cum_sum", "cumprod": "cum_prod", "cummax": "cum_max", "cummin": "cum_min"}
@@ -575,6 +575,145 @@ def window_aggregate(call: PandasCall, ctx: RuleContext) -> Value:
     _last_digits(column, how, kind, options, ctx)
     code = _aggregate_code(_numeric(column, ctx), how, options, kind, ddof)
     return derived_column(column, code, dtype="float")
+
+
+# -- rolling and expanding windows within groups -------------------------------------------------
+#
+# `df.groupby(k)[c].rolling(n).mean()` is ordered by group (keys sorted, each group's rows in
+# the frame's order, rows of a missing key left out) with (key, row label) as its index. As a
+# Polars value it is the window expression `rolling_mean(n).over(k)` computed in a frame of
+# those rows in that order. `.reset_index(level=0, drop=True)` (or `.droplevel(0)`) leaves the
+# row labels, so assigning it into the frame it came from puts each value back on its own row:
+# there the same expression is computed in the frame's own order (pl.when(key present)).
+
+
+@dataclass(frozen=True)
+class GroupWindow(Accessor):
+    """`df.groupby(k)[c].rolling(n)` / `.expanding()`: a window per group waiting for its method
+    (keys `groupby.rolling.<method>`); a hand-over makes it again from the grouped Series."""
+
+    grouped: Grouped = field(kw_only=True)
+    key_prefix: str = field(default="groupby.rolling", kw_only=True)
+
+
+@dataclass(frozen=True)
+class GroupOrdered(Column):
+    """A window's result per group in pandas' order: by group, with the keys in the index. Its
+    methods are keys `groupby.window.<method>`: only reset_index(level=keys, drop=True) and
+    droplevel(keys) are ported."""
+
+    grouped: Grouped = field(kw_only=True)
+    in_order: Code = field(kw_only=True)  # the same values in the grouped frame's row order
+    key_prefix: str = field(default="groupby.window", kw_only=True)
+
+
+@dataclass(frozen=True)
+class Relabelled(Column):
+    """A Series whose labels are a frame's own row labels, in another order (a group window
+    after reset_index(level=0, drop=True)). pandas aligns it on the labels when it is assigned
+    into that frame: `aligned_in(frame)` is then the column in the frame's own order."""
+
+    in_order: Column | None = field(default=None, kw_only=True)
+
+    def aligned_in(self, frame: Frame) -> Column | None:
+        if self.in_order is None or self.in_order.frame.rows != frame.rows:
+            return None
+        return self.in_order
+
+
+def _group_sorted(grouped: Grouped) -> Frame:
+    """The grouped frame's rows in pandas' group order: keys sorted (a missing key last, or
+    left out with dropna=True), or in order of first appearance (sort=False); each group's rows
+    in the frame's order."""
+    frame = grouped.frame
+    code = frame.code
+    if grouped.dropna:
+        code = code.method("filter", _keys_present(grouped))
+    if grouped.sort:
+        code = code.method("sort", emit.names_arg(grouped.keys), nulls_last=True, maintain_order=True)
+    else:  # each group where its first row is: the smallest row number of the group
+        code = code.method("with_row_index", ROW_NUMBER).method(
+            "sort", _over(grouped, emit.col(ROW_NUMBER).method("min")), maintain_order=True
+        ).method("drop", ROW_NUMBER)
+    return derive(frame, code, same_rows=False)
+
+
+ROW_NUMBER = "_porter_row"
+
+
+@rule("groupby.rolling", "groupby.expanding")
+def group_rolling(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.groupby(keys)[col].rolling(n, min_periods, center) / .expanding(min_periods) -> a
+    window per group waiting for its method (`groupby.rolling.mean` ...).
+
+    Handles: the same window arguments as Series.rolling / expanding.
+    Caveats: time windows, on=, win_type, closed, step are TODOs.
+    """
+    grouped, column = _selected(call)
+    window = (rolling if call.name == "rolling" else expanding)(
+        PandasCall(column, call.name, call.args, call.kwargs, call.node), ctx)
+    assert isinstance(window, Accessor)
+    return GroupWindow(window.code, column=column, kind=window.kind, options=window.options,
+                       grouped=grouped, key_prefix=f"groupby.{call.name}")
+
+
+@rule(*(f"groupby.{kind}.{how}" for kind in ("rolling", "expanding") for how in WINDOW_AGGREGATES
+        if (kind, how) != ("expanding", "median")))
+def group_window_aggregate(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.groupby(keys)[col].rolling(n).mean() / sum / ... -> rolling_mean(n, ...).over(keys),
+    computed in a frame of the rows in pandas' group order, with the keys in the index.
+
+    Handles: each group's window restarts at its first row; as Series.rolling for missing
+    values, min_periods and dtypes; the result is ordered by group as pandas orders it.
+    Caveats: as Series.rolling for the last digits of sums, means, std and var.
+    """
+    window = call.receiver
+    assert isinstance(window, GroupWindow)
+    plain = window_aggregate(PandasCall(Accessor(window.code, column=window.column,
+                                                 kind=window.kind, options=window.options),
+                                        call.name, call.args, call.kwargs, call.node), ctx)
+    assert isinstance(plain, Column)
+    grouped = window.grouped
+    rows = _group_sorted(grouped)
+    rows = replace(rows, index=tuple(dict.fromkeys((*grouped.keys, *rows.index))))
+    return GroupOrdered(_over(grouped, plain.code), frame=rows, name=plain.name, dtype="float",
+                        refs=plain.refs, versions=plain.versions, grouped=grouped,
+                        in_order=_window(grouped, plain.code))
+
+
+@rule("groupby.window.reset_index", "groupby.window.droplevel")
+def group_window_labels(call: PandasCall, ctx: RuleContext) -> Value:
+    """g[col].rolling(n).mean().reset_index(level=0, drop=True) -> window.over(keys) in the
+    frame's order where it is assigned back (droplevel(0) alike).
+
+    The values keep their own row labels, still in group order; assigned into the frame they
+    came from, pandas puts each value back on its row: the window .over(keys) computed in the
+    frame's order.
+
+    Caveats: any other use of the index levels (reset_index without drop, only some of
+    several keys) is a TODO.
+    """
+    result = call.receiver
+    assert isinstance(result, GroupOrdered)
+    keys = result.grouped.keys
+    if call.name == "reset_index":
+        ctx.reject_unknown(call, "level", "drop", positional=2)
+        level = call.const("level", 0, None)
+        if call.const("drop", 1, False, kinds=(bool,)) is not True:
+            raise Unsupported("the keys become a column beside the row labels")
+    else:
+        ctx.reject_unknown(call, "level", positional=1)
+        level = call.const("level", 0)
+    levels = level if isinstance(level, (list, tuple)) else [level]
+    wanted = ({*range(len(keys))}, set(keys))
+    if not (len(levels) == len(keys) and (set(levels) in wanted)) or any(
+            isinstance(v, bool) for v in levels):
+        raise Unsupported(f"level={level!r}: only every key level (the row labels stay)")
+    rows = replace(result.frame, index=tuple(i for i in result.frame.index if i not in keys))
+    in_order = derived_column(column_of(result.grouped.frame, result.name or ""), result.in_order,
+                              dtype="float")
+    return Relabelled(result.code, frame=rows, name=result.name, dtype=result.dtype,
+                      refs=result.refs, versions=result.versions, in_order=in_order)
 
 
 # -- apply(func) over a window ------------------------------------------------------------------

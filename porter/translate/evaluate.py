@@ -583,6 +583,13 @@ class Evaluator:
                           inside_from_pandas=self.services.inside_from_pandas(node),
                           shown=self.services.shown(node),
                           function_def=self.services.function_defs.get)
+        if key == "frame.setitem" and len(call.args) == 2 and isinstance(call.receiver, Frame) \
+                and hasattr(call.args[1], "aligned_in"):
+            # a Series holding the frame's own row labels in another order: pandas puts each
+            # value on its row, which is the column computed in the frame's order
+            aligned = call.args[1].aligned_in(call.receiver)  # type: ignore[attr-defined]
+            if aligned is not None:
+                call = replace(call, args=(call.args[0], aligned.with_sites(*call.args[1].sites)))
         try:
             result = fn(call, ctx)
         except Unsupported as exc:
@@ -752,7 +759,8 @@ def _rows_kept(key: str, call: PandasCall) -> int | None:
     receiver = call.receiver
     method = key.rsplit(".", 1)[-1]
     if isinstance(receiver, Accessor):
-        if method in _ROW_CHANGING_STR or call.kwargs.get("expand") is not None:
+        if method in _ROW_CHANGING_STR or call.kwargs.get("expand") is not None \
+                or getattr(receiver, "grouped", None) is not None:  # ordered by group
             return None
         base: Value | None = receiver.column
     elif isinstance(receiver, Column) and method in _ROW_KEEPING_METHODS:
@@ -781,6 +789,8 @@ def _row_wise(call: PandasCall) -> bool:
 
 
 def _prefix(value: Value) -> str:
+    if getattr(value, "key_prefix", None):  # a window within groups (rules/windows.py)
+        return value.key_prefix  # type: ignore[attr-defined]
     if isinstance(value, Frame):
         return "frame"
     if isinstance(value, Column):

@@ -100,7 +100,9 @@ def to_pandas(value: Value) -> Code:
         return code
     if isinstance(value, Accessor):
         if value.kind in WINDOW_KINDS:  # the window is made again, with the same arguments
-            return to_pandas(value.column).method(value.kind, **dict(value.options))
+            grouped = getattr(value, "grouped", None)  # a window within groups
+            base = to_pandas(grouped if grouped is not None else value.column)
+            return base.method(value.kind, **dict(value.options))
         return to_pandas(value.column).attr(value.kind)
     if isinstance(value, Indexer):
         return to_pandas(value.frame).attr(value.kind)
