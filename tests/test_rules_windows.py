@@ -267,6 +267,7 @@ def test_group_windows_port(expr: str, fragment: str) -> None:
     ('df.groupby("k")[["v", "n"]].ffill()', "groupby.ffill"),
     ('df.groupby("k")["v"].transform(lambda s: s.max() - s.min())', "groupby.transform"),
     ('df.groupby("k")["v"].transform(lambda s: s.sort_values())', "groupby.transform"),
+    ('df.groupby("k")["v"].transform(lambda s: s.reset_index(drop=True))', "groupby.transform"),
     ('df.groupby("k")["v"].transform("quantile", 0.5, interpolation="nearest")', "groupby.transform"),
 ])
 def test_group_window_forms_porter_cannot_read_are_todos(expr: str, key: str) -> None:

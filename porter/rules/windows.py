@@ -207,7 +207,9 @@ def _transform_function(call: PandasCall, grouped: Grouped, column: Column, func
     result = _checked(ctx.evaluate(body, {param: values}), ctx)
     if isinstance(result, Scalar) and result.agg is not None and result.agg.frame.rows == group.rows:
         expr, dtype = result.agg.code, result.agg.dtype  # one value broadcast to the group
-    elif isinstance(result, Column) and result.frame.rows == group.rows and not result.element:
+    elif isinstance(result, Column) and result.frame.rows == group.rows and not result.element \
+            and (result.frame.labels_intact, result.frame.index) == (False, group.index):
+        # the group's own rows under their own labels (pandas aligns the result on them)
         expr, dtype = ctx.bool_expr(result, group), result.dtype
     else:
         raise Unsupported("the function's result is not one expression of the group's column "
