@@ -308,9 +308,11 @@ df = pd.DataFrame({
 
 def test_qcut_ports_to_linear_quantile_edges() -> None:
     text = check_ports(QCUT + 'df["band"] = pd.qcut(df["kg"], 2, labels=["lo", "hi"])\n',
-                       'pl.when(pl.col("kg").is_between(pl.col("kg").min(), '
-                       'pl.col("kg").quantile(0.5, "linear"), closed="both"))')
+                       'pl.when(pl.col("kg") <= pandas_quantile(pl.col("kg"), 0.5))'
+                       '.then(pl.lit("lo")).when(pl.col("kg") <= pl.col("kg").max())'
+                       '.then(pl.lit("hi"))')
     assert '.cast(pl.Enum(["lo", "hi"]))' in text
+    assert "def pandas_quantile(column, q):" in text
 
 
 @pytest.mark.parametrize("call", [
@@ -327,6 +329,37 @@ def test_qcut_ports_to_linear_quantile_edges() -> None:
 ])
 def test_qcut_matches_pandas(call: str) -> None:
     result = differential(QCUT + f"df['band'] = {call}\nresult = df\n")
+    assert not result.todos, result.converted_text
+
+
+def test_qcut_of_inner_quantiles_bounds_the_first_bin() -> None:
+    text = check_ports(QCUT + 'df["band"] = pd.qcut(df["kg"], [0.25, 0.5, 0.75], labels=["b", "c"])\n',
+                       'pl.when(pl.col("kg").is_between(pandas_quantile(pl.col("kg"), 0.25), '
+                       'pandas_quantile(pl.col("kg"), 0.5), closed="both"))')
+    assert 'closed="right"' in text
+
+
+@pytest.mark.parametrize("values,q", [
+    # the 5/6 quantile of these is 36.29999999999999 in pandas (numpy's interpolation) and
+    # 36.3 in Polars' quantile (which interpolates differently when values are missing): the
+    # two 36.3 go to the top bin in pandas
+    ("[36.3, None, 6.6, 19.8, None, 0.0, 3.3, 23.1, 39.6, 42.9, 19.8, 33.0, None, 26.4, 33.0, "
+     "19.8, 33.0, 16.5, 36.3, 0.0, 33.0, None, 16.5]", 6),
+    # 7/9 is not exact: pandas takes the quantile one digit above it, whose edge is 49.5
+    # itself (49.49999999999998 at 7/9), so the two 49.5 stay in the seventh bin
+    ("[29.7, 39.6, 26.4, None, 33.0, 42.9, 26.4, 49.5, 23.1, 36.3, 42.9, 39.6, 42.9, 52.8, "
+     "29.7, 19.8, 42.9, 59.4, 62.7, 36.3, 59.4, 42.9, 49.5, 39.6, 19.8, 13.2, 6.6, 59.4, None, "
+     "29.7]", 9),
+])
+def test_qcut_puts_values_on_an_edge_where_pandas_does(values: str, q: int) -> None:
+    # the missing value is 0 / 0: NaN made missing (fill_nan), as scripts make them
+    source = ("import pandas as pd\n"
+              f"df = pd.DataFrame({{'kg': {values}}})\n"
+              "df['kg'] = df['kg'].fillna(0.0) / df['kg'].notna().astype(float)\n"
+              f"df['band'] = pd.qcut(df['kg'], {q}, labels=[f'b{{i}}' for i in range({q})])\n"
+              "result = df\n")
+    source = source.replace("[f'b{i}' for i in range(%d)]" % q, repr([f"b{i}" for i in range(q)]))
+    result = differential(source)
     assert not result.todos, result.converted_text
 
 

@@ -37,6 +37,24 @@ def pandas_div(numerator, divisor):
     return numerator / (numerator.is_null() * 0 + divisor)
 """
 
+# A function, defined once at the top of a converted script, that computes a quantile as
+# pandas does (numpy's linear interpolation, to the last binary digit).
+QUANTILE_FUNCTION = "pandas_quantile"
+QUANTILE_DEFINITION = """\
+def pandas_quantile(column, q):
+    \"\"\"The q quantile of the column's values as pandas computes it (numpy's linear
+    interpolation, to the last binary digit: Polars' quantile can be one digit off, which
+    moves a value sitting on a bin's edge into the next bin).\"\"\"
+    values = column.drop_nulls().sort()
+    position = (values.len().cast(pl.Float64) - 1) * q
+    below = position.floor()
+    t = position - below
+    last = values.len().cast(pl.Int64) - 1
+    a = values.gather(below.cast(pl.Int64))
+    b = values.gather((below.cast(pl.Int64) + 1).clip(upper_bound=last))
+    return pl.when(t >= 0.5).then(b - (b - a) * (1 - t)).otherwise(a + (b - a) * t)
+"""
+
 # dtype spellings in read_csv(dtype=...) / astype(...) → (Polars dtype code, porter dtype name)
 DTYPES: dict[str, tuple[str, str]] = {
     "str": ("pl.String", "str"), "string": ("pl.String", "str"), "object": ("pl.String", "str"),

@@ -7,7 +7,7 @@ import libcst as cst
 from porter.analysis.imports import ImportFacts
 from porter.rules.io_options import (
     CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION, DIVIDE_DEFINITION, DIVIDE_FUNCTION,
-    NA_CONSTANT, PANDAS_NA_TOKENS,
+    NA_CONSTANT, PANDAS_NA_TOKENS, QUANTILE_DEFINITION, QUANTILE_FUNCTION,
 )
 
 
@@ -81,10 +81,13 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
         body = _insert_at_top(body)
     if CSV_DATETIMES_CONSTANT in used and not _defines(module, CSV_DATETIMES_CONSTANT):
         body = _insert_after_imports(body, _constant(CSV_DATETIMES_DEFINITION))
-    if DIVIDE_FUNCTION in used and not _defines(module, DIVIDE_FUNCTION):
-        body = _insert_after_imports(body, _function(DIVIDE_DEFINITION))
+    for function, definition in ((DIVIDE_FUNCTION, DIVIDE_DEFINITION),
+                                 (QUANTILE_FUNCTION, QUANTILE_DEFINITION)):
+        if function not in used or _defines(module, function):
+            continue
+        body = _insert_after_imports(body, _function(definition))
         at = next(i for i, node in enumerate(body) if isinstance(node, cst.FunctionDef)
-                  and node.name.value == DIVIDE_FUNCTION)
+                  and node.name.value == function)
         if at + 1 < len(body):  # two blank lines after a function, as PEP 8 has it
             after = body[at + 1]
             lines = list(getattr(after, "leading_lines", ()))
