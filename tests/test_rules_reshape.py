@@ -46,6 +46,7 @@ def test_crosstab_ports_to_a_pivot_of_counts() -> None:
     'pd.crosstab(index=df["kind"], columns=df["shop"])',
     'pd.crosstab(df["shop"], df["size"])',  # number labels: named as text by Polars
     'pd.crosstab([df["shop"], df["kind"]], df["size"])',
+    'pd.crosstab([df["shop"], df["kind"]], df["size"], normalize="index")',
     'pd.crosstab(df["shop"].str.upper(), df["kind"])',
     'pd.crosstab(df["shop"], df["kind"], rownames=["where"], colnames=["what"])',
     'pd.crosstab(df["shop"], df["kind"], normalize=True)',
