@@ -18,6 +18,7 @@ from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.elementwise import _checked, body_expression, function_value
 from porter.rules.groupby import agg_expr
+from porter.translate import handover
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_of, derive, derived_column, select_columns,
 )
@@ -144,9 +145,10 @@ def group_transform(call: PandasCall, ctx: RuleContext) -> Value:
     made of reductions, element-wise operations and windows, is evaluated once for a group and
     the whole expression computed per group (a reduction is broadcast to the group's rows, as
     pandas broadcasts a scalar result).
+    A body that reads the group only through reductions combined by Python operators
+    (s.max() - s.min()) has each reduction .over(keys).
     Caveats: numpy functions, a body that reads anything but the group's column (another
-    column, the frame, its labels), and a body that is only reductions combined by Python
-    operators (s.max() - s.min()) are TODOs; an int column whose keys have a missing value is
+    column, the frame, its labels) are TODOs; an int column whose keys have a missing value is
     float in pandas and stays integer in Polars (the values match).
     """
     grouped, column = _selected(call)
@@ -212,12 +214,62 @@ def _transform_function(call: PandasCall, grouped: Grouped, column: Column, func
         # the group's own rows under their own labels (pandas aligns the result on them)
         expr, dtype = ctx.bool_expr(result, group), result.dtype
     else:
-        raise Unsupported("the function's result is not one expression of the group's column "
-                          "(reductions, element-wise operations and windows of it)")
+        return _reductions_combined(param, body, grouped, column, values, ctx)
     if GROUP_FRAME in expr.text or (result.refs if isinstance(result, Column) else {column.name}) \
             - {column.name}:
         raise Unsupported("the function reads the group as a frame (a collected value, a filter)")
     return derived_column(column, _window(grouped, expr), dtype=dtype)
+
+
+# what a reduction of the group's values is, by the method's name (else the column's type)
+REDUCTION_TYPES = {"mean": "float", "median": "float", "std": "float", "var": "float",
+                   "quantile": "float", "sem": "float", "count": "int", "nunique": "int"}
+
+
+class _GroupReductions(cst.CSTTransformer):
+    """Replaces each reduction of the group's values (`s.max()`, `s.notna().sum()`) by a name
+    bound to it as a window (`pl.col("v").max().over(key)`): one value on every row."""
+
+    def __init__(self, param: str, values: Column, grouped: Grouped, ctx: RuleContext) -> None:
+        super().__init__()
+        self.param, self.values, self.grouped, self.ctx = param, values, grouped, ctx
+        self.bindings: dict[str, Value] = {}
+
+    def leave_Call(self, original: cst.Call, updated: cst.Call) -> cst.BaseExpression:
+        if not (isinstance(original.func, cst.Attribute) and _mentions(original.func.value, self.param)):
+            return updated
+        value = _checked(self.ctx.evaluate(original, {self.param: self.values}), self.ctx)
+        if not (isinstance(value, Scalar) and value.agg is not None
+                and value.agg.frame.rows == self.values.frame.rows
+                and GROUP_FRAME not in value.agg.code.text):
+            return updated
+        name = f"_porter_reduction_{len(self.bindings)}"
+        base = column_of(self.grouped.frame, self.values.name or "")
+        dtype = REDUCTION_TYPES.get(original.func.attr.value, base.dtype)
+        self.bindings[name] = derived_column(base, _over(self.grouped, value.agg.code), dtype=dtype,
+                                             name=None)
+        return cst.Name(name)
+
+
+def _reductions_combined(param: str, body: cst.BaseExpression, grouped: Grouped, column: Column,
+                         values: Column, ctx: RuleContext) -> Value:
+    """transform(lambda s: s.max() - s.min()): a body that reads the group only through
+    reductions, combined by Python operators, is one value per group: each reduction a window
+    of its own (a column on every row, so a division of two is exact, as pandas' division of
+    two numbers; Polars divides a single value by multiplying by its reciprocal)."""
+    reductions = _GroupReductions(param, values, grouped, ctx)
+    rewritten = body.visit(reductions)
+    assert isinstance(rewritten, cst.BaseExpression)
+    if not reductions.bindings or _mentions(rewritten, param):
+        raise Unsupported("the function's result is not one expression of the group's column "
+                          "(reductions, element-wise operations and windows of it)")
+    result = _checked(ctx.evaluate(rewritten, reductions.bindings), ctx)
+    if not (isinstance(result, Column) and result.frame.rows == grouped.frame.rows):
+        raise Unsupported("the function's reductions are combined in a way porter cannot write "
+                          "as an expression")
+    expr = ctx.bool_expr(result, grouped.frame)
+    return derived_column(column, _window(grouped, expr, over=expr), dtype=result.dtype,
+                          others=[result])
 
 
 @rule(*(f"groupby.{name}" for name in CUMULATIVE))
@@ -607,6 +659,7 @@ class GroupOrdered(Column):
     grouped: Grouped = field(kw_only=True)
     in_order: Code = field(kw_only=True)  # the same values in the grouped frame's row order
     key_prefix: str = field(default="groupby.window", kw_only=True)
+    pandas: Code | None = field(default=None, kw_only=True)  # made again by pandas, labels and all
 
 
 @dataclass(frozen=True)
@@ -616,6 +669,7 @@ class Relabelled(Column):
     into that frame: `aligned_in(frame)` is then the column in the frame's own order."""
 
     in_order: Column | None = field(default=None, kw_only=True)
+    pandas: Code | None = field(default=None, kw_only=True)  # made again by pandas, labels and all
 
     def aligned_in(self, frame: Frame) -> Column | None:
         if self.in_order is None or self.in_order.frame.rows != frame.rows:
@@ -678,9 +732,13 @@ def group_window_aggregate(call: PandasCall, ctx: RuleContext) -> Value:
     grouped = window.grouped
     rows = _group_sorted(grouped)
     rows = replace(rows, index=tuple(dict.fromkeys((*grouped.keys, *rows.index))))
+    # handed to pandas, the window is made again there: the labels are pandas' own
+    options = {k: call.const(k, None) for k in call.kwargs}
+    options.update(zip(("ddof",), (call.const("ddof", 0),) if call.args else ()))
+    pandas = handover.to_pandas(window).method(call.name, **options)
     return GroupOrdered(_over(grouped, plain.code), frame=rows, name=plain.name, dtype="float",
                         refs=plain.refs, versions=plain.versions, grouped=grouped,
-                        in_order=_window(grouped, plain.code))
+                        in_order=_window(grouped, plain.code), pandas=pandas)
 
 
 @rule("groupby.window.reset_index", "groupby.window.droplevel")
@@ -714,8 +772,10 @@ def group_window_labels(call: PandasCall, ctx: RuleContext) -> Value:
     rows = replace(result.frame, index=tuple(i for i in result.frame.index if i not in keys))
     in_order = derived_column(column_of(result.grouped.frame, result.name or ""), result.in_order,
                               dtype="float")
+    pandas = None if result.pandas is None else result.pandas.method(call.name, level=level, **(
+        {"drop": True} if call.name == "reset_index" else {}))
     return Relabelled(result.code, frame=rows, name=result.name, dtype=result.dtype,
-                      refs=result.refs, versions=result.versions, in_order=in_order)
+                      refs=result.refs, versions=result.versions, in_order=in_order, pandas=pandas)
 
 
 # -- apply(func) over a window ------------------------------------------------------------------

@@ -70,6 +70,8 @@ def to_pandas(value: Value) -> Code:
             code = code.method("rename", columns={c: int(c) for c in labels})
         return code
     if isinstance(value, Column):
+        if getattr(value, "pandas", None) is not None:
+            return value.pandas  # type: ignore[attr-defined]  # pandas makes it again (rules/windows.py)
         if value.frame.index:
             name = value.name if value.name is not None else "0"
             code = (series_frame(value).method("collect").method("to_pandas")
