@@ -344,6 +344,10 @@ def test_group_rows_porter_cannot_read_are_todos(expr: str) -> None:
     'df.groupby("k")["v"].expanding().sum()', 'df.groupby("g")["n"].expanding(2).mean()',
     'df.groupby("k", sort=False)["v"].rolling(2, min_periods=1).mean()',
     'df.groupby("k", dropna=False)["v"].rolling(2, min_periods=1).sum()',
+    'df.groupby("g")["v"].rolling(3, min_periods=2).std(ddof=0)',
+    'df.groupby("k")["v"].rolling(3, min_periods=2).apply(lambda w: w[-1] - np.nanmean(w), raw=True)',
+    'df.groupby("g")["n"].rolling(2, min_periods=1).apply(lambda w: w[-1] * 2, raw=True)',
+    'df.groupby("k")["v"].expanding().apply(lambda w: np.nanmax(w) - w[-1], raw=True)',
 ])
 @pytest.mark.parametrize("labels", [".reset_index(level=0, drop=True)", ".droplevel(0)",
                                     '.reset_index(level="k", drop=True)'])
@@ -389,6 +393,10 @@ def test_group_rolling_elsewhere_keeps_pandas_group_order(expr: str) -> None:
     # another frame: pandas aligns the labels it shares (made again by pandas, labels and all)
     ('d2 = df.head(5)\nd2["w"] = df.groupby("k")["v"].rolling(2).sum().reset_index(level=0, drop=True)', None),
     ('d2 = df.head(7)\nd2["w"] = df.groupby("g")["v"].expanding().sum().droplevel(0)', None),
+    ('d2 = df.head(7)\nd2["w"] = df.groupby("g")["v"].rolling(3, min_periods=2).apply(lambda w: w[-1] - np.nanmean(w), '
+     'raw=True).droplevel(0)', None),
+    ('df["w"] = df.groupby("k")["v"].rolling(3).apply(lambda w: w[0], raw=True).reset_index(level=0, drop=True)',
+     "groupby.rolling.apply"),
 ])
 def test_group_rolling_forms_porter_cannot_place_stay_pandas(statement: str, key: str | None) -> None:
     result = differential(GROUPS + statement + "\nresult = d2 if 'd2' in dir() else df\n")

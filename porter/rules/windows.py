@@ -713,29 +713,32 @@ def group_rolling(call: PandasCall, ctx: RuleContext) -> Value:
                        grouped=grouped, key_prefix=f"groupby.{call.name}")
 
 
-@rule(*(f"groupby.{kind}.{how}" for kind in ("rolling", "expanding") for how in WINDOW_AGGREGATES
-        if (kind, how) != ("expanding", "median")))
+@rule(*(f"groupby.{kind}.{how}" for kind in ("rolling", "expanding")
+        for how in (*WINDOW_AGGREGATES, "apply") if (kind, how) != ("expanding", "median")))
 def group_window_aggregate(call: PandasCall, ctx: RuleContext) -> Value:
-    """df.groupby(keys)[col].rolling(n).mean() / sum / ... -> rolling_mean(n, ...).over(keys),
-    computed in a frame of the rows in pandas' group order, with the keys in the index.
+    """df.groupby(keys)[col].rolling(n).mean() / sum / ... / apply(f) -> rolling_mean(n, ...)
+    .over(keys) (the window function's expression .over(keys)), computed in a frame of the
+    rows in pandas' group order, with the keys in the index.
 
-    Handles: each group's window restarts at its first row; as Series.rolling for missing
-    values, min_periods and dtypes; the result is ordered by group as pandas orders it.
+    Handles: each group's window restarts at its first row; as Series.rolling / expanding for
+    missing values, min_periods, dtypes and the functions apply reads; the result is ordered
+    by group as pandas orders it.
     Caveats: as Series.rolling for the last digits of sums, means, std and var.
     """
     window = call.receiver
     assert isinstance(window, GroupWindow)
-    plain = window_aggregate(PandasCall(Accessor(window.code, column=window.column,
-                                                 kind=window.kind, options=window.options),
-                                        call.name, call.args, call.kwargs, call.node), ctx)
+    plain_rule = window_apply if call.name == "apply" else window_aggregate
+    plain = plain_rule(PandasCall(Accessor(window.code, column=window.column, kind=window.kind,
+                                           options=window.options),
+                                  call.name, call.args, call.kwargs, call.node), ctx)
     assert isinstance(plain, Column)
     grouped = window.grouped
     rows = _group_sorted(grouped)
     rows = replace(rows, index=tuple(dict.fromkeys((*grouped.keys, *rows.index))))
-    # handed to pandas, the window is made again there: the labels are pandas' own
-    options = {k: call.const(k, None) for k in call.kwargs}
-    options.update(zip(("ddof",), (call.const("ddof", 0),) if call.args else ()))
-    pandas = handover.to_pandas(window).method(call.name, **options)
+    # handed to pandas, the window is made again there (the arguments as written: numbers,
+    # the function): the labels are pandas' own
+    pandas = handover.to_pandas(window).method(
+        call.name, *(a.code for a in call.args), **{k: v.code for k, v in call.kwargs.items()})
     return GroupOrdered(_over(grouped, plain.code), frame=rows, name=plain.name, dtype="float",
                         refs=plain.refs, versions=plain.versions, grouped=grouped,
                         in_order=_window(grouped, plain.code), pandas=pandas)
