@@ -385,3 +385,38 @@ def test_a_column_set_to_a_name_is_not_taken_for_an_alias():
         df["note"] = default
         heavy["flag"] = True
         ''', "df", "heavy")
+
+
+def test_labels_of_a_filtered_frame_read_later_are_pandas_own():
+    # pos.index once read 0..n-1 from a collected frame, so the wrong rows were flagged
+    text = both('''
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        pos = df[df["tons"] > 2]
+        df["heavy"] = False
+        df.loc[pos.index, "heavy"] = True
+        ''', "df", "pos")
+    assert "frame.labels" not in text  # the key is in the report, not in the code
+    assert "pos = df[df[\"tons\"] > 2]" in text
+
+
+def test_a_filtered_series_added_to_a_whole_column_aligns_on_labels():
+    # pandas aligns the two Series on their labels: the filtered one keeps the original numbers
+    both('''
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        big = df[df["crates"] > 1]["crates"]
+        total = big + df["crates"]
+        ''', "total")
+
+
+def test_a_column_stored_into_a_frame_pandas_holds_is_handed_over():
+    # the target is a pandas frame (its labels are pandas' own): the Polars expression would
+    # have been stored as an expression object
+    both('''
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        heavy = df[df["tons"] > 2].copy()
+        heavy.index.name = "row"
+        heavy["crates_all"] = df["crates"]
+        ''', "heavy")

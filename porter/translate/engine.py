@@ -145,6 +145,7 @@ class _Walker:
         self.returned_of: dict[str, list[str | None]] = {}  # see returned_column
         self.body_values: dict[str, list[Value]] = {}  # names bound in functions' bodies
         self.param_frames: dict[int, str] = {}  # rows of frame parameters: their names
+        self.handed_from: dict[str, int] = {}  # see note_handed_over
         self.function: str | None = None
         self.header_sites: list[SiteDraft] = []  # sites in the header of the compound statement at hand
         self.statement_key = 0  # the simple statement being rewritten
@@ -269,6 +270,7 @@ class _Walker:
                     and any(isinstance(v, Frame) for v in values)):
                 continue
             frame = next(v for v in values if isinstance(v, Frame))
+            self.note_handed_over(name, frame)
             line = cst.parse_statement(
                 f"# handed to pandas, as the other branch does\n"
                 f"{name} = {handover.to_pandas(frame).text}\n")
@@ -334,6 +336,7 @@ class _Walker:
             if isinstance(value, Frame) and isinstance(after.get(name), PandasValue):
                 widened[name] = PandasValue(emit.atom(name))  # pandas in every iteration
                 handed[name] = value
+                self.note_handed_over(name, value)
                 line = f"{name} = {handover.to_pandas(value).text}\n"
                 before.append(cst.parse_statement(line))
         body, after = self.indented(stmt.body, widened, unit, indent)
@@ -366,6 +369,7 @@ class _Walker:
         for name in dict.fromkeys(names):
             value = env.get(name)
             if isinstance(value, Frame):
+                self.note_handed_over(name, value)
                 lines.append(f"{name} = {handover.to_pandas(value).text}")
                 env[name] = PandasValue(emit.atom(name), frame=_after_change(name, value, None))
         site = SiteDraft("frame.changed_in_a_loop", "handover", "todo", 0.0,
@@ -598,6 +602,8 @@ class _Walker:
         for name, what in changed.items():
             value = env[name]
             kind = "frame" if isinstance(value, Frame) else "series"
+            if isinstance(value, Frame):
+                self.note_handed_over(name, value)
             code = handover.to_pandas(value)
             if kind == "series" and not value.frame.index:
                 # a Series from Polars shares Arrow's read-only memory, and pandas writes into
@@ -751,6 +757,17 @@ class _Walker:
                 if result is not None:
                     return result
         value = evaluator.eval(stmt.value)
+        if isinstance(value, (Frame, Column)) and not all(isinstance(t, cst.Name) for t in targets):
+            # stored into an object porter does not model (a frame pandas holds, a dict, an
+            # attribute): it gets the pandas value, aligned by pandas on its labels, so both
+            # sides' labels must be pandas' own
+            frame = value if isinstance(value, Frame) else value.frame
+            evaluator.note_labels_read(frame)
+            for target in targets:
+                root = _root_and_path(target)[0] if isinstance(target, (cst.Subscript, cst.Attribute)) else None
+                if root in self.handed_from:
+                    self.services.labels_needed.add(self.handed_from[root])
+            value = evaluator.handed_to_unknown(value, stmt.value)
         for target in targets:
             for name in _target_names(target):
                 env[name] = Opaque(emit.atom(name))
@@ -826,7 +843,15 @@ class _Walker:
         sites = [replace(s, status="todo", confidence=0.0,
                          message="kept on pandas with the statement it is in")
                  if s.status == "converted" else s for s in result.sites]
+        self.note_handed_over(name, frame)
         return f"{name} = {handover.to_pandas(frame).text}\n{original}", sites
+
+    def note_handed_over(self, name: str, frame: Frame) -> None:
+        """A frame handed to pandas in its own name after a filter or sort: pandas numbers its
+        rows 0..n-1 again. Remembered, so that pandas code that then aligns another Series to
+        it has pandas make it with its own labels (see assign)."""
+        if not frame.labels_intact and not frame.index and frame.binding is not None:
+            self.handed_from[name] = frame.binding
 
     def set_attr(self, target: cst.Attribute, value_node: cst.BaseExpression, env: dict[str, Value],
                  evaluator: Evaluator, indent: str) -> tuple[str | None, list[SiteDraft]] | None:
@@ -848,6 +873,38 @@ class _Walker:
                     and value.frame.code.text == name and value.frame.rows != frame.rows:
                 self.services.stale_series.add(value.binding)
 
+    def made_by_pandas(self, name: str, expr: cst.BaseExpression, env: dict[str, Value],
+                       value: Value) -> tuple[str, list[SiteDraft]] | None:
+        """`pos = df[df["a"] > 0]` whose row labels pandas code reads later (`pos.index`): a
+        filter or sort made them the original row numbers, which a Polars frame does not keep.
+        The frames the statement reads are handed to pandas in their own names (they come back
+        at the next statement porter rewrites) and pandas runs the statement, so `pos` holds
+        pandas' labels. None when the statement reads something else porter made (an
+        expression in a name) or a frame whose own labels are already renumbered."""
+        read = [n for n in _names_read(self.services.code_for(expr)) if n in env]
+        frames = [n for n in read if isinstance(env[n], Frame)]
+        if not frames or any(not isinstance(env[n], (Frame, PandasValue, Module, Opaque, Scalar))
+                             for n in read):
+            return None
+        if any(not env[n].labels_intact or env[n].index for n in frames):  # type: ignore[union-attr]
+            return None
+        lines = []
+        for n in frames:
+            frame = env[n]
+            assert isinstance(frame, Frame)
+            lines.append(f"{n} = {handover.to_pandas(frame).text}")
+            env[n] = PandasValue(emit.atom(n), frame=replace(frame, code=emit.atom(n), sites=()))
+        lines.append(f"{name} = {self.services.code_for(expr)}")
+        env[name] = PandasValue(emit.atom(name))
+        site = SiteDraft("frame.labels", "handover", "handover", 1.0,
+                         f"pandas code reads the row labels of `{name}` later, which are the "
+                         "original row numbers after a filter or sort: pandas makes it",
+                         *self.services.statement_lines)
+        sites = [replace(x, status="todo", confidence=0.0,
+                         message="kept on pandas with the statement it is in")
+                 if x.status == "converted" else x for x in value.sites]
+        return "\n".join(lines), [*sites, site]
+
     def series_of_its_own(self, name: str, value: Column) -> tuple[Code, Column]:
         """`s = df.select(...)`: the Series keeps its values when `df` is filtered later; it is
         still an expression of `df` while `df` keeps the same rows and columns."""
@@ -865,16 +922,26 @@ class _Walker:
     def bind(self, name: str, value: Value, env: dict[str, Value], indent: str) -> tuple[str | None, list[SiteDraft]]:
         """`name = value`: remember what the name now holds and write the assignment."""
         code = value.code
+        self.handed_from.pop(name, None)
         small = self.current_small
         # `name = other`: the statement binds the name itself (not `df["c"] = flag`)
         source = small.value if isinstance(small, cst.Assign) and len(small.targets) == 1 \
             and isinstance(small.targets[0].target, cst.Name) \
             and small.targets[0].target.value == name else None
+        binds_name = isinstance(small, cst.Assign) and len(small.targets) == 1 \
+            and isinstance(small.targets[0].target, cst.Name) and small.targets[0].target.value == name
+        frame_of = value if isinstance(value, Frame) else value.frame if isinstance(value, Column) else None
+        if frame_of is not None and binds_name and not frame_of.labels_intact and not frame_of.index \
+                and self.statement_key in self.services.labels_needed:
+            made = self.made_by_pandas(name, small.value, env, value)  # type: ignore[union-attr]
+            if made is not None:
+                return made
         if isinstance(value, Frame) and isinstance(source, cst.Name) and source.value != name \
                 and self.changed_later(name, source.value):
             # `view = df` and one of them changed in place: both names are one object in
             # pandas, so a change through either shows through the other. Both stay pandas.
             original = source.value
+            self.note_handed_over(original, value)
             lines = [f"{original} = {handover.to_pandas(value).text}", f"{name} = {original}"]
             env[original], env[name] = PandasValue(emit.atom(original)), PandasValue(emit.atom(name))
             site = SiteDraft("frame.alias", "handover", "todo", 0.0,
@@ -903,9 +970,11 @@ class _Walker:
                 code = handover.series_frame(value)
                 column = value.name if value.name is not None else "0"
                 frame = Frame(emit.atom(name), columns=(*value.frame.index, column),
-                              index=value.frame.index, labels_intact=value.frame.labels_intact)
+                              index=value.frame.index, labels_intact=value.frame.labels_intact,
+                              binding=self.statement_key)
                 env[name] = Column(emit.col(column), frame=frame, name=value.name,
-                                   dtype=value.dtype, refs=frozenset({column}))
+                                   dtype=value.dtype, refs=frozenset({column}),
+                                   binding=self.statement_key)
         elif isinstance(value, Parts):
             # str.extract / split(expand=True) kept in a name: the Polars expression of the
             # whole result, its columns taken from it (parts.struct.field("1")); pandas computes

@@ -103,6 +103,9 @@ class Services:
     collect_at: frozenset[int] = frozenset()
     # Series kept in a name whose frame's name later holds other rows: kept as a frame of its own
     stale_series: set[int] = field(default_factory=set)
+    # frames bound to a name whose row labels pandas code reads later (`pos.index`) after a
+    # filter or sort made them other than 0..n-1: the next pass has pandas make them
+    labels_needed: set[int] = field(default_factory=set)
     statement_lines: tuple[int, int] = (0, 0)  # lines of the statement being rewritten
     # whether a node is glued to the word before it (`if(`, `not(`): its rewrite needs parentheses
     glued: Callable[[cst.CSTNode], bool] = lambda node: False
@@ -264,6 +267,8 @@ class Evaluator:
                                sites=receiver.sites)
             if name in pandas_names.FRAME and name not in _FRAME_PROPERTIES:
                 return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
+            if name == "index":
+                self.note_labels_read(receiver)
             if name in _FRAME_PROPERTIES:
                 return self.dispatch(f"frame.{name}", PandasCall(receiver, name, node=node), node)
             return self.dispatch("frame.getattr", PandasCall(receiver, name, node=node), node)
@@ -275,6 +280,8 @@ class Evaluator:
                                 sites=receiver.sites)
             if name in pandas_names.SERIES and name not in _SERIES_PROPERTIES:
                 return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
+            if name == "index":
+                self.note_labels_read(receiver.frame)
             return self.dispatch(f"series.{name}", PandasCall(receiver, name, node=node), node)
         if isinstance(receiver, Grouped):
             if name in pandas_names.GROUPBY and name not in (receiver.frame.columns or ()):
@@ -299,6 +306,30 @@ class Evaluator:
             call = PandasCall(receiver, "getitem", (Opaque(emit.lit(name), const=name),), node=node)
             return self.dispatch("series.str.expand.getitem", call, node)
         return self.generic(node)
+
+    def note_labels_read(self, frame: Frame) -> None:
+        """pandas code reads this frame's row labels: when a filter or sort made them other
+        than 0..n-1 and the frame is bound to a name, pandas makes it (engine.bind), so the
+        labels are pandas' own."""
+        if not frame.labels_intact and not frame.index and frame.binding is not None:
+            self.services.labels_needed.add(frame.binding)
+
+    def note_alignment(self, call: PandasCall) -> None:
+        """A call pandas makes on Series or frames of different rows aligns them on their
+        labels: a value among them bound to a name after a filter or sort must hold pandas'
+        own labels, so the next pass has pandas make it (engine.bind)."""
+        values = [v for v in (call.receiver, *call.args, *call.kwargs.values())
+                  if isinstance(v, (Frame, Column))]
+        frames = [v if isinstance(v, Frame) else v.frame for v in values]  # type: ignore[union-attr]
+        if len({f.rows for f in frames}) < 2:
+            return
+        for value, frame in zip(values, frames):
+            if frame.labels_intact or frame.index:
+                continue
+            if isinstance(value, Column) and value.binding is not None:
+                self.services.labels_needed.add(value.binding)
+            else:
+                self.note_labels_read(frame)
 
     def column_names_attribute(self, names: Scalar, attr: str, node: cst.Attribute) -> Value:
         """`df.columns.<attr>`: porter's column names are a list, pandas' an Index."""
@@ -637,6 +668,7 @@ class Evaluator:
         site = SiteDraft(key, entry.rule or "todo" if entry else "todo", "todo", 0.0, message,
                          line, end_line, suggestion)
         fallback = handover.pandas_fallback(call, self.source, node)
+        self.note_alignment(call)
         sites = _child_sites(call, None) + (site,)
         if (call.receiver is None and entry is not None and entry.extra.get("returns") == "frame"
                 and not self.services.inside_from_pandas(node)
