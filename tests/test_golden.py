@@ -108,9 +108,22 @@ def test_untouched_lines_are_identical(name, source, stem, conversions):
             continue
         if re.match(r"\s*(import numpy|from numpy import)", line):
             continue  # dropped when the conversion no longer uses it (checked below)
-        if _may_name_a_frame(line, result):
+        if _may_name_a_frame(line, result) or number in _left_out(result):
             continue
         assert line in output_lines, f"line {number} changed or vanished: {line!r}"
+
+
+def _left_out(result: FileResult) -> set[int]:
+    """Lines of functions porter left out because it ported them where they are applied."""
+    note = "a pandas function of each group, is ported as group_by().agg()"
+    if note not in result.converted_text:
+        return set()
+    lines: set[int] = set()
+    for node in ast.parse(result.original_text).body:
+        if isinstance(node, ast.FunctionDef) and f"# porter: {node.name}(" in result.converted_text \
+                and f"def {node.name}(" not in result.converted_text:
+            lines.update(range(node.lineno, (node.end_lineno or node.lineno) + 1))
+    return lines
 
 
 def _may_name_a_frame(line: str, result: FileResult) -> bool:

@@ -454,10 +454,11 @@ def test_groupby_apply_code() -> None:
                        'pl.col("n").filter(pl.col("zone") == "loge").sum()')
     assert 'pl.col("zone").drop_nulls().n_unique().cast(pl.Float64).alias("zones")' in text
     assert ".otherwise(None)" in text and 'pl.col("qty").sum().alias("qty")' in text
-    # the function is no longer called: kept as written, said so, and not ported
-    assert "# porter: ported as group_by().agg() expressions where it is applied;" in text
-    assert '    return pd.Series({\n        "sold": sold,' in text
-    assert convert(text).converted_text == text  # converting again changes nothing
+    # the function is no longer called: left out with a note (keeping it would keep the
+    # pandas import), and converting again changes nothing
+    assert "a pandas function of each group, is ported as group_by().agg()" in text
+    assert "def summary" not in text and "import pandas" not in text
+    assert convert(text).converted_text == text
 
 
 def test_groupby_apply_function_called_elsewhere_is_ported_as_usual() -> None:

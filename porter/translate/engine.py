@@ -19,7 +19,7 @@ from porter.model import SiteDraft
 from porter.translate import handover, imports as import_edits
 from porter.translate.functions import (
     COLUMNS, EXPRESSION_ROWS, discover_functions, function_definitions, learn_functions,
-    marked_as_applied, ported_where_applied,
+    marked_as_applied, ported_where_applied, removed_note,
 )
 from porter.rules.assign import INTERVAL_MAKERS
 from porter.translate.writes import batch_writes, is_sink_text
@@ -152,14 +152,23 @@ class _Walker:
         self.current_small: cst.CSTNode = cst.Pass()
         self.loop_depth = 0
         self.sink_run: int | None = None  # the execution a run of consecutive writes shares
+        self.has_next = False  # the statement at hand has another after it in its block
+        self.carried: list[cst.EmptyLine] = []  # comments for the next statement (function_def)
 
     # blocks ---------------------------------------------------------------------------------
     def block(self, body: Any, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
         out: list[Any] = []
-        for stmt in body:
+        body = list(body)
+        for i, stmt in enumerate(body):
             if not isinstance(stmt, cst.SimpleStatementLine):
                 self.sink_run = None
+            self.has_next = i < len(body) - 1
             new, env = self.statement(stmt, env, unit, indent)
+            if self.carried and new and hasattr(new[0], "leading_lines"):
+                # the comments of a statement left out (a function ported where applied)
+                new = [new[0].with_changes(leading_lines=[*self.carried, *new[0].leading_lines]),
+                       *new[1:]]
+                self.carried = []
             out.extend(new)
         self.sink_run = None
         if self.emit_code:
@@ -193,6 +202,13 @@ class _Walker:
         if isinstance(stmt, cst.SimpleStatementLine):
             return self.simple_line(stmt, env, indent), env
         if isinstance(stmt, cst.FunctionDef):
+            if self.has_next and not self.carried and ported_where_applied(stmt, self.services) \
+                    and self.services.name_uses.get(stmt.name.value, 0) > 1:
+                # every use is an apply porter wrote as group_by().agg(): the pandas function is
+                # no longer run, and keeping it would keep the pandas import (a third of a
+                # second and 100 MiB at start-up); its comments stay, with a note
+                self.carried = [*stmt.leading_lines, *removed_note(stmt)]
+                return [], env
             return [self.function_def(stmt, env, unit, indent)], env
         if isinstance(stmt, cst.If):
             return self.if_stmt(stmt, env, unit, indent)

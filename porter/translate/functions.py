@@ -274,6 +274,24 @@ def _marked(stmt: cst.FunctionDef) -> bool:
                for line in stmt.leading_lines)
 
 
+def removed_note(stmt: cst.FunctionDef) -> list[cst.EmptyLine]:
+    """The comment left where a function ported where applied was (engine.block)."""
+    name = stmt.name.value
+    params = ", ".join(p.name.value for p in stmt.params.params)
+    comments: list[str] = []
+
+    class Comments(cst.CSTVisitor):
+        def visit_Comment(self, node: cst.Comment) -> None:
+            comments.append(node.value)
+
+    stmt.body.visit(Comments())
+    texts = [f"# porter: {name}({params}), a pandas function of each group, is ported as "
+             "group_by().agg()",
+             "#   expressions where it was applied, and left out here"
+             + (" (its comments follow)" if comments else "")]
+    return [cst.EmptyLine(comment=cst.Comment(text)) for text in (*texts, *comments)]
+
+
 def marked_as_applied(stmt: cst.FunctionDef) -> cst.FunctionDef:
     if _marked(stmt):
         return stmt

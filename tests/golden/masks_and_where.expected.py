@@ -1,4 +1,3 @@
-import numpy as np
 import polars as pl
 
 # Text that pandas' read_csv reads as a missing value.

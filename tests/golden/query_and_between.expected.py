@@ -21,7 +21,10 @@ high = (
     .lazy()
 )
 mid = meters.filter(pl.col("litres").is_between(10, 30, closed="left"))
-print(high.select(pl.len()).collect().item(), mid.select(pl.len()).collect().item())
+print(
+    high.select(pl.len()).collect().item(),
+    mid.select(pl.len()).collect().item(),
+)
 (
     high
     .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))

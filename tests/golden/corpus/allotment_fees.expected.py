@@ -37,7 +37,11 @@ def load_plots(path):
     )
     plots = plots.with_columns(tenant=pl.col("tenant").fill_null(pl.lit("vacant")))
     plots = plots.with_columns(
-        fee=(pl.col("size_m2") * RATE_PER_M2 + pl.col("tap").replace_strict(TAP_SURCHARGE, default=None)).round(2),
+        fee=(
+            pl.col("size_m2") * RATE_PER_M2
+            + pl.col("tap").replace_strict(TAP_SURCHARGE, default=None)
+        )
+        .round(2),
     )
     plots = plots.with_columns(
         plot_label=pl.lit("P-") + pl.col("plot_no").cast(pl.String),

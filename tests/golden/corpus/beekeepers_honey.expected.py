@@ -42,7 +42,7 @@ def load_season(path, season):
 def main():
     spring = load_season("data/spring_2024.csv", "spring")
     summer = load_season("data/summer_2024.csv", "summer")
-    harvests = pl.concat([spring, summer], how="diagonal_relaxed").collect().lazy()
+    harvests = pl.concat([spring, summer], how="diagonal_relaxed")
     print(harvests.select(pl.len()).collect().item())
 
     harvests = harvests.unique(

@@ -5,7 +5,6 @@ when it went through the lock (the last one whose effective date is on or before
 Lock-keepers write the class by hand ('Narrowboat ', 'BARGE'), a few lengths are missing and a
 raft has no tariff at all.
 """
-import pandas as pd
 import polars as pl
 
 # Text that pandas' read_csv reads as a missing value.
@@ -60,16 +59,22 @@ def price(passages, tariffs):
         nulls_last=True,
         maintain_order=True,
     )
-    # TODO(porter): pd.merge_asof: porter has no rule for this API yet
-    priced = pd.merge_asof(
-        passages.collect().to_pandas(),
-        tariffs.collect().to_pandas(),
-        left_on="passed_at",
-        right_on="effective_from",
-        by="vessel_class",
-        direction="backward",
+    priced = (
+        passages
+        .rename(
+            lambda c, other=tariffs.collect_schema().names(): c + "_x" if c in other and c not in ("passed_at", "vessel_class", "effective_from") else c,
+        )
+        .join_asof(
+            tariffs.rename(
+                lambda c, other=passages.collect_schema().names(): c + "_y" if c in other and c not in ("passed_at", "vessel_class", "effective_from") else c,
+            ),
+            left_on="passed_at",
+            right_on="effective_from",
+            by="vessel_class",
+            coalesce=False,
+            check_sortedness=False,
+        )
     )
-    priced = pl.from_pandas(priced).lazy()
     priced = priced.with_columns(
         toll=pl.col("base_toll") + pl.col("per_metre") * pl.col("length_m"),
     )

@@ -45,7 +45,9 @@ def sale_status(row):
 
 wheels = wheels.with_columns(turns=pl.col("turns").fill_null(0).cast(pl.Int64))
 wheels = wheels.with_columns(
-    loss_pct=(((pl.col("start_kg") - pl.col("now_kg")) / pl.col("start_kg")).fill_nan(None) * 100).round(2),
+    loss_pct=((pl.col("start_kg") - pl.col("now_kg")) / pl.col("start_kg") * 100)
+    .fill_nan(None)
+    .round(2),
 )
 wheels = wheels.with_columns(loss_pct=pl.col("loss_pct").clip(0, None))
 wheels = wheels.with_columns(made_month=pl.col("made_on").dt.month())

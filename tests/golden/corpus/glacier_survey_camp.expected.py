@@ -64,14 +64,14 @@ def main():
     readings = readings.sort(["stake", "read_on"], nulls_last=True, maintain_order=True)
 
     # rolling over the whole sorted book -- the first rows of a stake still see the last of the previous one
-    readings = readings.collect().to_pandas()
-    # TODO(porter): frame.getitem.column: kept on pandas with the statement it is in
-    # TODO(porter): series.rolling: rolling_mean / rolling_sum(window_size=n) on the column; min_periods
-    #   is min_samples; time windows are rolling_*_by with min_samples=1
-    # TODO(porter): frame.setitem: a Series computed by pandas whose rows porter cannot match to the
-    #   frame's (pandas aligns it on the index): the statement stays pandas
-    readings["jump"] = readings["exposed_cm"].rolling(3, min_periods=2).apply(jump_from_median, raw=True)
-    readings = pl.from_pandas(readings).lazy()
+    readings = readings.with_columns(
+        jump=(
+            pl.col("exposed_cm").cast(pl.Float64)
+            - pl.col("exposed_cm").cast(pl.Float64).rolling_median(3, min_samples=2)
+        )
+        .fill_nan(None)
+        .abs(),
+    )
     readings = (
         readings
         .with_columns(suspicious=(pl.col("jump") > JUMP_CM).fill_null(False))

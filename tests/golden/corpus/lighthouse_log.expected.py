@@ -19,7 +19,7 @@ FOG_NM = 2   # below two nautical miles the horn goes on
 
 def tidy_names(s):
     # keepers type their own names, in any case, sometimes with a leading space
-    return s.str.strip().str.title()
+    return s.str.strip_chars().str.to_titlecase()
 
 
 log = pl.scan_csv(
@@ -35,15 +35,13 @@ stations = pl.scan_csv(
 print("raw lines:", log.select(pl.len()).collect().item())
 
 log = log.unique(keep="first", maintain_order=True)
-log = log.with_columns(station=pl.col("station").str.strip_chars().str.to_uppercase())
-log = log.collect().to_pandas()
-# TODO(porter): frame.getitem.column: kept on pandas with the statement it is in
-# TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
-#   pandas with .collect().to_pandas(); port that code to take a Polars frame
-# TODO(porter): frame.setitem: `tidy_names(...)` is computed from frame data by code porter hands to
-#   pandas, and may be a Series: the statement stays pandas
-log['keeper'] = tidy_names(log['keeper'])
-log = pl.from_pandas(log).lazy()
+log = (
+    log
+    .with_columns(station=pl.col("station").str.strip_chars().str.to_uppercase())
+    .collect()
+    .lazy()
+)
+log = log.with_columns(keeper=tidy_names(pl.col('keeper')))
 log = log.with_columns(
     watch_no=pl.col("watch").str.to_lowercase().replace_strict(WATCHES, default=None),
 )
@@ -53,27 +51,14 @@ log = log.with_columns(
 )
 
 # order of the book: station, night, watch
-log = (
-    log
-    .sort(
-        ["station", "watch_date", "watch_no", "log_id"],
-        nulls_last=True,
-        maintain_order=True,
-    )
-    .collect()
-    .lazy()
+log = log.sort(
+    ["station", "watch_date", "watch_no", "log_id"],
+    nulls_last=True,
+    maintain_order=True,
 )
 
 # fill the tank dips the keepers skipped
-# TODO(porter): series.interpolate: porter has no rule for this API yet
-# TODO(porter): frame.setitem: a Series computed by pandas, row for row from this frame, is put back
-#   by position; port the computation to an expression
-log = log.with_columns(
-    oil_est=pl.Series(
-        log.select(pl.col("oil_litres")).collect().to_series().to_pandas().interpolate(),
-        nan_to_null=True,
-    ),
-)
+log = log.with_columns(oil_est=pl.col("oil_litres").interpolate().forward_fill())
 log = log.with_columns(oil_est=pl.col("oil_est").round(1))
 log = log.with_columns(estimated=pl.col("oil_litres").is_null()).collect().lazy()
 
@@ -110,7 +95,7 @@ per_station = (
     )
 )
 per_station = per_station.with_columns(
-    burn_share=((pl.col("high") - pl.col("low")).fill_nan(None) / pl.col("tank_litres")).fill_nan(None),
+    burn_share=((pl.col("high") - pl.col("low")) / pl.col("tank_litres")).fill_nan(None),
 )
 per_station = per_station.with_columns(burn_share=pl.col("burn_share").round(3))
 per_station = per_station.with_columns(mean_wind=pl.col('mean_wind').round(2))

@@ -65,7 +65,9 @@ per_hut = (
         maintain_order="left_right",
     )
     .with_columns(
-        nights_per_bed=(pl.col("guest_nights") / pl.col("beds")).fill_nan(None).round(1),
+        nights_per_bed=(pl.col("guest_nights") / pl.col("beds"))
+        .fill_nan(None)
+        .round(1),
     )
     .drop("warden")
     .sort("guest_nights", descending=True, nulls_last=True, maintain_order=True)

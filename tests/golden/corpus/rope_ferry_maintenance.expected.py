@@ -38,10 +38,21 @@ def clean_jobs(jobs):
 
 def price_parts(lines, prices):
     # two pulley prices -> a pulley line comes out twice; we take the dearer one below
-    # TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
-    #   pandas with .collect().to_pandas(); port that code to take a Polars frame
-    lines = lines.merge(prices.collect().to_pandas(), on="part", how="left")
-    lines = pl.from_pandas(lines).lazy()
+    lines = (
+        lines
+        .rename(
+            lambda c, other=prices.collect_schema().names(): c + "_x" if c in other and c not in ("part",) else c,
+        )
+        .join(
+            prices.rename(
+                lambda c, other=lines.collect_schema().names(): c + "_y" if c in other and c not in ("part",) else c,
+            ),
+            on="part",
+            how="left",
+            nulls_equal=True,
+            maintain_order="left_right",
+        )
+    )
     lines = lines.sort(
         ["job_id", "part", "unit_cost"],
         descending=[False, False, True],
@@ -73,17 +84,10 @@ prices = (
 jobs = clean_jobs(jobs)
 
 # one row per part fitted
-jobs = jobs.collect().to_pandas()
-# TODO(porter): frame.getitem.column: kept on pandas with the statement it is in
-# TODO(porter): series.str.split: a list column is pl.col(c).str.split(pat) (literal; pandas reads a
-#   pattern longer than one character as a regex); expand=True needs the number of parts:
-#   str.split_exact(pat, n).struct.unnest() and rename field_i to i
-# TODO(porter): frame.setitem: a Series computed by pandas whose rows porter cannot match to the
-#   frame's (pandas aligns it on the index): the statement stays pandas
-jobs["part"] = jobs["parts_used"].str.split(";")
-lines = jobs.explode("part")
-lines["part"] = lines["part"].str.strip().str.lower()
-lines = lines[lines["part"] != ""]
+jobs = jobs.with_columns(part=pl.col("parts_used").str.split(";")).collect().lazy()
+lines = jobs.explode("part", empty_as_null=True, keep_nulls=True)
+lines = lines.with_columns(part=pl.col("part").str.strip_chars().str.to_lowercase())
+lines = lines.filter(pl.col("part").ne_missing(pl.lit(""))).collect().lazy()
 lines = price_parts(lines, prices)
 lines = (
     lines
@@ -100,7 +104,6 @@ parts_per_job = (
     .sort("job_id")
     .rename({"unit_cost": "parts_cost"})
 )
-jobs = pl.from_pandas(jobs).lazy()
 job_costs = (
     jobs
     .rename(lambda c: c + "_x" if c in ("parts_cost",) else c)

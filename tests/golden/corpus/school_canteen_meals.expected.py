@@ -3,7 +3,6 @@
 A portion count of 0 means the pupil was booked but absent. The allergen
 column says 'none' or is blank when the family declared nothing.
 """
-import numpy as np
 import pandas as pd
 import polars as pl
 

@@ -43,28 +43,17 @@ tags = (
     .unique("harvest_id", keep="first", maintain_order=True)
     .with_columns(species=pl.col("species").str.strip_chars().str.to_lowercase())
 )
-tags = (
-    tags
-    .with_columns(harvester=pl.col("harvester").str.strip_chars())
-    .collect()
-    .lazy()
-)
+tags = tags.with_columns(harvester=pl.col("harvester").str.strip_chars())
 
 # split the hand-written tag into its parts
-# TODO(porter): series.str.extract: one group: pl.col(c).str.extract(pat, 1); several:
-#   str.extract_groups(pat).struct.unnest() and rename the fields '1', '2' to pandas' 0, 1 (check
-#   the pattern for Python-only regex features)
-parts = tags.select(pl.col("tag")).collect().to_series().to_pandas().str.extract(
-    TAG_PATTERN,
+parts = (
+    pl.col("tag").str
+    .extract_groups("^\\s*[Ll](\\d+)-([A-Ca-c])(?:/[Ww](\\d+))?\\s*\\n?$")
 )
-tags = tags.collect().to_pandas()
-# TODO(porter): frame.setitem: a Series computed by pandas whose rows porter cannot match to the
-#   frame's (pandas aligns it on the index): the statement stays pandas
-tags["line"] = "L" + parts[0].str.zfill(2)
-tags["bay"] = parts[1].str.upper()
-tags["week"] = parts[2].astype(float)
+tags = tags.with_columns(line=pl.lit("L") + parts.struct.field("1").str.zfill(2))
+tags = tags.with_columns(bay=parts.struct.field("2").str.to_uppercase())
+tags = tags.with_columns(week=parts.struct.field("3").cast(pl.Float64)).collect().lazy()
 
-tags = pl.from_pandas(tags).lazy()
 unread = tags.filter(pl.col("line").is_null())
 tags = tags.filter(pl.col("line").is_not_null())
 

@@ -3,7 +3,6 @@
 Accession numbers are zero-padded strings; a tray with nothing sown (sown == 0)
 has no rate rather than a division error.
 """
-import numpy as np
 import polars as pl
 
 # Text that pandas' read_csv reads as a missing value.
@@ -82,7 +81,10 @@ registry = (
     .lazy()
 )
 rated = attach_registry(tests, registry).collect().lazy()
-print(tests.select(pl.len()).collect().item(), rated.select(pl.len()).collect().item())
+print(
+    tests.select(pl.len()).collect().item(),
+    rated.select(pl.len()).collect().item(),
+)
 
 (
     species_summary(rated)

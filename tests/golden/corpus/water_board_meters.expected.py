@@ -4,7 +4,6 @@ The meter office export is semicolon separated, starts with three comment
 lines, and its last rows are provisional (only the first 150 readings count).
 A reading lower than the previous one means the meter was replaced.
 """
-import numpy as np
 import polars as pl
 
 # Text that pandas' read_csv reads as a missing value.
@@ -34,14 +33,15 @@ print((df.select(pl.len()).collect().item(), len(df.collect_schema())))
 df = df.with_columns(village=pl.col("village").str.strip_chars().str.to_uppercase())
 df = df.with_columns(tariff=pl.col("tariff").str.strip_chars().str.to_lowercase())
 df = df.with_columns(
-    usage_m3=(pl.col("current_m3") - pl.col("previous_m3")).fill_nan(None)
+    usage_m3=(pl.col("current_m3") - pl.col("previous_m3"))
+    .fill_nan(None)
     .abs()
     .round(2),
 )
 df = df.with_columns(usage_m3=pl.col("usage_m3").clip(0, 120))
 df = df.with_columns(rate=pl.col("tariff").replace_strict(TARIFF_RATES, default=None))
 df = df.with_columns(
-    bill=((pl.col(col) * pl.col("rate")).fill_nan(None) + STANDING_CHARGE).round(2),
+    bill=(pl.col(col) * pl.col("rate") + STANDING_CHARGE).fill_nan(None).round(2),
 )
 df = (
     df
