@@ -81,6 +81,12 @@ def test_todo(before: str, key: str) -> None:
     check_todo(FRAME + before + "\n", key)
 
 
+def test_third_reset_index_is_a_todo() -> None:
+    # pandas raises (columns "index" and "level_0" exist): the line stays pandas'
+    text = convert(FRAME + "r = df.reset_index().reset_index().reset_index()\n").converted_text
+    assert "# TODO(porter): frame.reset_index" in text
+
+
 UNCHANGED = [
     pytest.param("xs = [3, 1, 2]\nxs.sort()\nys = sorted(xs, reverse=True)\n", id="list sort"),
     pytest.param("text = 'a-b'\nclean = text.replace('-', '_')\n", id="str replace"),
@@ -123,6 +129,7 @@ FRAMES = [
     pytest.param('df.groupby("k").size().reset_index(name="c")', id="size reset_index"),
     pytest.param('df.groupby("k")["v"].sum().reset_index(drop=True)', id="series reset_index drop"),
     pytest.param("df.reset_index()", id="reset_index fresh labels"),
+    pytest.param("df.reset_index().reset_index()", id="second reset_index names level_0"),
     pytest.param("df.head(3).reset_index()", id="reset_index after head"),
     pytest.param("df.reset_index(drop=True)", id="reset_index drop"),
     pytest.param("df[df.v > 1].reset_index(drop=True)", id="reset_index drop after filter"),

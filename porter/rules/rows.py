@@ -153,9 +153,20 @@ def reset_index(call: PandasCall, ctx: RuleContext) -> Value:
     if not frame.labels_intact:
         raise Unsupported("the old row labels of a filtered or reordered frame become a column "
                           "(with_row_index where the frame was made)")
-    code = frame.code.method("with_row_index", "index").method(
-        "with_columns", emit.col("index").method("cast", emit.atom("pl.Int64")))
-    columns = ("index", *frame.columns) if frame.columns is not None else None
+    # pandas names the labels "index", or "level_0" when the frame has an "index" column
+    # already (a frame reset once before), and raises when it has both
+    name = "index"
+    if frame.columns is None:
+        ctx.lower("the labels column is named \"index\" (pandas: \"level_0\" when the frame "
+                  "has an \"index\" column, which porter cannot see here)", 0.9)
+    elif "index" in frame.columns:
+        if "level_0" in frame.columns:
+            raise Unsupported("the frame has columns \"index\" and \"level_0\" already "
+                              "(pandas raises)")
+        name = "level_0"
+    code = frame.code.method("with_row_index", name).method(
+        "with_columns", emit.col(name).method("cast", emit.atom("pl.Int64")))
+    columns = (name, *frame.columns) if frame.columns is not None else None
     return derive(frame, code, same_rows=True, labels_intact=True, columns=columns)
 
 
