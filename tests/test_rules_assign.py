@@ -217,3 +217,16 @@ def test_a_list_of_another_length_fails_as_in_pandas() -> None:
     assert "pl.Series([1, 2]" in converted
     done = subprocess.run([sys.executable, "-c", converted], capture_output=True, text=True)
     assert done.returncode != 0  # pandas raises ValueError; Polars refuses the length too
+
+
+def test_astype_of_text_with_spaces_reads_numbers_as_pandas() -> None:
+    # pandas reads each text as float()/int() do, around spaces; a strict cast had failed
+    differential("""
+import pandas as pd
+df = pd.DataFrame({"pct": ["12 %", "7%", None, " 3 %"], "n": [" 4", "5 ", None, "\\t6"],
+                   "m": [" 4", "5 ", "+1", "\\t6"]})
+df["f"] = df["pct"].str.rstrip("%").astype(float) / 100
+df["i"] = df["m"].astype(int)
+df["g"] = df["n"].astype("float64")
+result = df
+""")

@@ -357,6 +357,9 @@ def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, st
         raise Unsupported("astype(bool) depends on the column type (use --data)")
     if kind == "int":
         ctx.lower("pandas raises on missing values when casting to int; Polars keeps them missing", 0.95)
+    if kind in ("int", "float") and column.dtype == "str":
+        # pandas reads each text as Python's int()/float() do, around spaces ("12 ", " 3 ")
+        code = code.attr("str").method("strip_chars")
     if kind == "category" and column.dtype not in ("str", "category"):
         if column.dtype is not None:
             raise Unsupported(f"a category of {column.dtype} values: Polars' Categorical holds "
