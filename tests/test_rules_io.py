@@ -570,3 +570,47 @@ def test_true_is_not_read_as_a_row_count(data: Path) -> None:
     result = convert('import pandas as pd\ndf = pd.read_csv("produce.csv", nrows=True)\n')
     assert "n_rows=True" not in result.converted_text
     assert any(s.key == "pd.read_csv" and s.status == "todo" for s in result.sites)
+
+
+# -- numbers pandas reads where Polars reads text (--data) -----------------------------------
+
+PADDED_CSV = "lock, boats, toll,change,gap\nA, 5, 2.50,+3,\nB, 12, 3 ,-2, 7\nC,\t9, 10.25,+12,\n"
+
+
+def test_numbers_with_spaces_or_a_plus_sign_are_numbers_as_in_pandas(data: Path) -> None:
+    # pandas' parser reads " 5", "3 " and "+3" as numbers; Polars reads the column as text, so
+    # max() and sort_values() would compare text (" 9" > " 12") and arithmetic would fail
+    (data / "locks.csv").write_text(PADDED_CSV, encoding="utf-8")
+    result = differential("""
+        import pandas as pd
+        df = pd.read_csv("locks.csv")
+        busiest = df.sort_values(" boats", ascending=False)
+        top = df[" toll"].max()
+        rise = df["change"].max()
+        df["double"] = df["change"] * 2 + df["gap"]
+        result = df
+        """, "busiest", "top", "rise", "result", data_dir=str(data))
+    assert 'str.strip_chars(" \\t").cast(pl.Int64)' in result.converted_text
+    assert 'pl.col("gap").str.strip_chars(" \\t").cast(pl.Float64)' in result.converted_text
+
+
+def test_text_that_is_not_a_number_after_stripping_stays_text(data: Path) -> None:
+    (data / "codes.csv").write_text("k,code,n\na, 5,1\nb, inf,2\nc, x1,3\n", encoding="utf-8")
+    result = differential("""
+        import pandas as pd
+        result = pd.read_csv("codes.csv")
+        """, data_dir=str(data))
+    assert "strip_chars" not in result.converted_text
+
+
+def test_a_column_with_no_values_is_float_as_in_pandas(data: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    # pandas reads a column holding only missing values as float64: its sum is 0.0
+    (data / "refunds.csv").write_text("k,empty,na_only,mixed\na,,NA,1\nb,,n/a,x\n", encoding="utf-8")
+    result = differential("""
+        import pandas as pd
+        df = pd.read_csv("refunds.csv")
+        df["n2"] = df["na_only"].sum()
+        big = df[df["empty"] > 0]
+        result = df
+        """, "result", "big", data_dir=str(data))
+    assert '"empty": pl.Float64' in result.converted_text

@@ -40,6 +40,10 @@ class FileSchema(dict[str, str]):
     # or missing (",,"), which pandas keeps
     blank_lines: bool | None = None
     empty_rows: bool = False
+    # columns of numbers written with spaces around them or a plus sign (" 5", "+3"): pandas
+    # reads numbers, Polars text; the scan reads them as text and the read casts them to the
+    # Polars dtype (as code) given here, after stripping the spaces
+    padded: dict[str, str] | None = None
 
 
 def polars_code(dtype: pl.DataType) -> str | None:
@@ -57,8 +61,11 @@ def merged(schemas: list[FileSchema]) -> FileSchema | None:
     columns, or, when their columns differ but agree on the types of the names they share,
     every column's type with `partial` set."""
     first = schemas[0]
-    if all(list(s.items()) == list(first.items()) and s.polars == first.polars for s in schemas):
+    if all(list(s.items()) == list(first.items()) and s.polars == first.polars
+           and s.padded == first.padded for s in schemas):
         return first
+    if any(s.padded for s in schemas):
+        return None  # which file's numbers need their spaces stripped is not known
     names: dict[str, str] = {}
     codes: dict[str, str] = {}
     for schema in schemas:
@@ -98,6 +105,7 @@ class SchemaReader:
         try:
             if reader == "csv":
                 schema = pl.scan_csv(file, **scan_kwargs(options)).collect_schema()
+                schema, padded = _text_read_as_numbers(file, schema, options)
                 schema = _missing_ints_as_floats(file, schema, options)
             elif reader == "parquet":
                 schema = pl.scan_parquet(file).collect_schema()
@@ -110,6 +118,10 @@ class SchemaReader:
             codes = {name: polars_code(dtype) for name, dtype in schema.items()}
             if all(codes.values()):
                 found.polars = codes  # type: ignore[assignment]
+                for name in padded:  # scanned as text, then cast
+                    found.polars[name] = "pl.String"
+            if padded:
+                found.padded = {name: polars_code(dtype) for name, dtype in padded.items()}  # type: ignore[misc]
             found.blank_lines, found.empty_rows = _blank_lines(file, scan_kwargs(options))
         return found
 
@@ -128,6 +140,49 @@ def _missing_ints_as_floats(file: Path, schema: Any, options: dict[str, Any]) ->
         if counts[name]:
             found[name] = pl.Float64
     return found
+
+
+# A number as pandas' CSV parser reads it once the spaces and tabs around it are stripped (a
+# plus sign is allowed); narrower than pandas' (no inf, no digits past int64): a column with
+# other text stays text, as Polars reads it.
+PADDED_INT = r"^[+-]?[0-9]{1,18}$"
+PADDED_FLOAT = r"^[+-]?([0-9]+\.?[0-9]*|\.[0-9]+)([eE][+-]?[0-9]+)?$"
+PADDING = " \t"
+
+
+def _text_read_as_numbers(file: Path, schema: Any, options: dict[str, Any]) -> tuple[dict[str, Any], dict[str, Any]]:
+    """The schema with the text columns pandas reads as numbers typed as pandas types them,
+    and those of them whose numbers Polars cannot read as they are (`padded`).
+
+    A column holding only missing values is float64 in pandas (Polars infers text). Numbers
+    written with spaces or tabs around them, or with a plus sign (" 5", "+3", "2.50 "), are
+    numbers in pandas and text in Polars: int64, or float64 when one is not whole or a value
+    is missing.
+    """
+    given = options.get("dtype") if isinstance(options.get("dtype"), dict) else {}
+    texts = [name for name, dtype in schema.items() if dtype == pl.String and name not in given]
+    found = dict(schema)
+    if not texts or file.stat().st_size > SAMPLE_SCAN_LIMIT:
+        return found, {}
+    frame = pl.scan_csv(file, **scan_kwargs(options))
+    stripped = [pl.col(name).str.strip_chars(PADDING) for name in texts]
+    row = frame.select(
+        pl.len().alias("\0rows"),
+        *[pl.col(name).null_count().alias(f"\0nulls{i}") for i, name in enumerate(texts)],
+        *[s.str.contains(PADDED_INT).all().alias(f"\0int{i}") for i, s in enumerate(stripped)],
+        *[s.str.contains(PADDED_FLOAT).all().alias(f"\0float{i}") for i, s in enumerate(stripped)],
+    ).collect().row(0, named=True)
+    padded: dict[str, Any] = {}
+    for i, name in enumerate(texts):
+        if not row["\0rows"]:
+            continue  # a file of a header only: pandas reads text columns too
+        if row[f"\0nulls{i}"] == row["\0rows"]:
+            found[name] = pl.Float64
+        elif row[f"\0int{i}"]:
+            found[name] = padded[name] = pl.Float64 if row[f"\0nulls{i}"] else pl.Int64
+        elif row[f"\0float{i}"]:
+            found[name] = padded[name] = pl.Float64
+    return found, padded
 
 
 SAMPLE_SCAN_LIMIT = 256 * 1024 * 1024  # a larger sample is not read again for its blank lines or blanks

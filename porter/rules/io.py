@@ -12,6 +12,7 @@ from porter.rules import rule
 from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, DTYPES, NA_CONSTANT, NOT_DECOMPRESSED,
                                      PANDAS_NA_TOKENS, compression_of, is_number, is_url,
                                      na_value_texts)
+from porter.analysis.schema import PADDING
 from porter.rules.strings import LIST_STR, list_repr
 from porter.translate import handover
 from porter.translate.context import PandasCall, RuleContext, Unsupported, derive, select_columns
@@ -156,6 +157,15 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                            "which porter cannot tell from them after the scan")
         # pandas skips blank lines; Polars reads each as a row of missing values
         code = code.method("filter", emit.unary("~", emit.pl("all_horizontal", emit.atom("pl.all().is_null()"))))
+    padded = getattr(schema, "padded", None)
+    if padded:
+        # numbers with spaces around them or a plus sign (" 5", "+3"): pandas reads numbers,
+        # Polars text; stripped and cast as pandas types them (--data showed every value fits)
+        code = code.method("with_columns", *[
+            emit.col(unnamed.get(c, c)).attr("str").method("strip_chars", PADDING)
+            .method("cast", emit.atom(t)) for c, t in padded.items()])
+        ctx.lower("numbers written with spaces around them or a plus sign are read as text and "
+                  "cast (--data showed every value of those columns is a number)", 0.95)
     if emptied:
         # pandas empties these columns' own tokens before it infers their types
         exprs = []
@@ -261,6 +271,9 @@ def _emptied_columns(per_column: dict[str, list[str]], schema: Any, overrides: d
             continue  # pandas ignores a key that names no column
         after = ctx.input_schema("csv", _paths(source), {**options, "na_values": tokens})
         kind = after.get(column) if after else None
+        if column in (getattr(after, "padded", None) or getattr(schema, "padded", None) or {}):
+            raise ctx.todo(f"na_values for column {column!r}, whose numbers are written with "
+                           "spaces around them or a plus sign")
         codes = getattr(after, "polars", None) or {}
         if kind == "str":
             out.append((column, tokens, None, "str"))
