@@ -164,6 +164,19 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
         # A Python value (not pl.lit): Polars fills only the columns whose type can hold it.
         code = frame.code.method("fill_null", value.const)
         others = [c for c, t in frame.dtypes if _mixes_types(value.const, t)]
+        if others and _kind_of(value.const) == "number" \
+                and all(frame.dtype(c) == "str" for c in others):
+            # pandas writes the number into the text columns too (they become object);
+            # Polars' fill_null(number) leaves them missing: fill them with its text
+            code = code.method("with_columns", emit.atom("pl.selectors.string()").method(
+                "fill_null", str(value.const)))
+            ctx.lower(f"pandas holds the number {value.const!r} among the texts of "
+                      f"{', '.join(others)} (an object column); Polars the text "
+                      f"{str(value.const)!r} (the same in a written file)", 0.9)
+            others = []
+        elif others:
+            raise Unsupported(f"pandas also fills {', '.join(others)} with {value.const!r}, "
+                              "making object columns of mixed types; Polars cannot mix them")
     else:
         code = frame.code.method("with_columns", emit.atom("pl.selectors.numeric()").method(
             "fill_null", fill_value(value, frame, ctx)))
