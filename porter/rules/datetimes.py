@@ -27,6 +27,16 @@ def _result(column: Column, code: Code, dtype: str) -> Column:
 _COMPONENTS = {"year": "year", "month": "month", "day": "day", "hour": "hour",
                "minute": "minute", "second": "second", "quarter": "quarter",
                "dayofyear": "ordinal_day", "day_of_year": "ordinal_day"}
+INT32 = emit.atom("pl.Int32")
+
+
+def _as_int32(code: Code) -> Code:
+    """A date part as pandas types it: int32. Polars' month, day, hour, minute, second,
+    quarter and weekday are Int8 and its ordinal_day Int16, where integer arithmetic wraps
+    around without an error (month * 100 is -80 for December, hour * 3600 wraps at 9 o'clock);
+    pandas' int32 holds every such key (year * 10000 + month * 100 + day). dt.year is Int32
+    already."""
+    return code.method("cast", INT32)
 
 
 @rule("series.dt.year", "series.dt.month", "series.dt.day", "series.dt.hour",
@@ -36,21 +46,24 @@ def component(call: PandasCall, ctx: RuleContext) -> Value:
     """s.dt.year / month / day / hour / minute / second / quarter / dayofyear -> dt.year() …
     (dayofyear -> dt.ordinal_day()).
 
-    Handles: the same numbers (January 1 is day 1 in both); missing stays missing.
-    Caveats: pandas' int32 becomes float64 when a value is missing; Polars keeps Int32/Int8.
+    Handles: the same numbers (January 1 is day 1 in both); missing stays missing; Int32 as
+    pandas' int32 (Polars' Int8 and Int16 parts would wrap around in arithmetic).
+    Caveats: pandas' int32 becomes float64 when a value is missing; Polars keeps Int32.
     """
     column = accessor_column(call)
-    return _result(column, _dt(column).method(_COMPONENTS[call.name]), "int")
+    code = _dt(column).method(_COMPONENTS[call.name])
+    return _result(column, code if call.name == "year" else _as_int32(code), "int")
 
 
 @rule("series.dt.weekday", "series.dt.dayofweek", "series.dt.day_of_week")
 def weekday(call: PandasCall, ctx: RuleContext) -> Value:
     """s.dt.weekday / dayofweek / day_of_week -> dt.weekday() - 1.
 
-    Handles: pandas counts Monday as 0, Polars (ISO) as 1 (D03).
+    Handles: pandas counts Monday as 0, Polars (ISO) as 1 (D03); Int32 as pandas' int32
+    (Polars' Int8 would wrap around in arithmetic).
     """
     column = accessor_column(call)
-    return _result(column, emit.binop(_dt(column).method("weekday"), "-", 1), "int")
+    return _result(column, emit.binop(_as_int32(_dt(column).method("weekday")), "-", 1), "int")
 
 
 @rule("series.dt.date")
