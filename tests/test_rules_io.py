@@ -84,7 +84,8 @@ PORTS = [
     pytest.param('df = pd.read_parquet("produce.parquet", columns=["id"])',
                  '.select("id")', id="read_parquet columns"),
     pytest.param('df = pd.DataFrame({"a": [1.0, np.nan, None]})\ndf.to_csv("out.csv", index=False)',
-                 'df.sink_csv("out.csv")', id="to_csv index=False sinks"),
+                 'df.sink_csv("out.csv", null_value=\'""\')',
+                 id="to_csv index=False sinks (one column: a missing value is written \"\")"),
     pytest.param('df = pd.DataFrame({"a": [1.0, np.nan]})\ndf.to_csv("out.csv")',
                  'df.collect().to_pandas().to_csv("out.csv")',
                  id="to_csv with the default index is handed to pandas"),
@@ -614,3 +615,45 @@ def test_a_column_with_no_values_is_float_as_in_pandas(data: Path, monkeypatch: 
         result = df
         """, "result", "big", data_dir=str(data))
     assert '"empty": pl.Float64' in result.converted_text
+
+
+# -- to_csv: header names, one column -------------------------------------------------------
+
+HEADER_WRITES = [
+    pytest.param('df.to_csv("out.csv", index=False, columns=["name", "kg"], header=["who", "mass"])',
+                 id="header names the selected columns"),
+    pytest.param('df.to_csv("out.csv", index=False, header=["a", "b", "c"])', id="header names every column"),
+    pytest.param('df.to_csv("out.csv", index=False, header=["kg", "name", "ok"])',
+                 id="header swaps two names"),
+    pytest.param('df.groupby("name")["kg"].sum().to_csv("out.csv", header=["total"])',
+                 id="header names the values, not the index"),
+    pytest.param('df[["kg"]].to_csv("out.csv", index=False)', id="one column with missing values"),
+    pytest.param('df[["name"]].to_csv("out.csv", index=False, header=False)',
+                 id="one text column with missing values, no header"),
+    pytest.param('df["kg"].to_csv("out.csv", index=False)', id="a Series with missing values"),
+]
+
+
+@pytest.mark.parametrize("write", HEADER_WRITES)
+def test_to_csv_bytes_match_for_header_names_and_one_column(write: str, data: Path,
+                                                            monkeypatch: pytest.MonkeyPatch) -> None:
+    # header=[...] renames the written columns; a missing value alone on its line is written
+    # "" by pandas (an empty line would be skipped when the file is read back)
+    frame = ('df = pd.DataFrame({"kg": [1.5, np.nan, None, 2.0], "name": ["Éclair", None, "ünï", "x"],'
+             ' "ok": [True, False, True, True]})')
+    if "header=False" in write:  # alone on its line, an empty text is written "" by both
+        frame = frame.replace('"ünï"', '""')
+    source = f"import numpy as np\nimport pandas as pd\n{frame}\n{write}\n"
+    expected_dir, actual_dir, converted = written_by_both(source, data, monkeypatch)
+    assert (actual_dir / "out.csv").read_text(encoding="utf-8") == \
+        (expected_dir / "out.csv").read_text(encoding="utf-8"), converted
+
+
+@pytest.mark.parametrize("write", [
+    pytest.param('df.to_csv("out.csv", index=False, header=["a"])', id="too few names"),
+    pytest.param('df.to_csv("out.csv", index=False, header=["a", "a", "b"])', id="a repeated name"),
+])
+def test_to_csv_header_names_todo(write: str) -> None:
+    result = convert(f"import pandas as pd\n{FRAME.replace('np.nan', 'None')}\n{write}\n")
+    assert any(s.key == "frame.to_csv" and s.status == "todo" for s in result.sites), result.sites
+    assert "sink_csv" not in result.converted_text

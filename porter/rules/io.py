@@ -378,9 +378,10 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     sep = call.const("sep", None, ",")
     if sep != ",":
         kwargs["separator"] = sep
-    if call.const("header", None, True) is False:
+    header = call.const("header", None, True, kinds=(bool, list, tuple))
+    if header is False:
         kwargs["include_header"] = False
-    na_rep = call.const("na_rep", None, "")
+    na_rep = call.const("na_rep", None, "", kinds=(str,))
     if na_rep:
         kwargs["null_value"] = na_rep
     text = csv_text_columns(frame, ctx)
@@ -388,7 +389,37 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
         frame = derive(frame, frame.code.method("with_columns", *text), same_rows=True)
     if frame.columns is not None and len(frame.dtypes) == len(frame.columns):
         ctx.confidence = max(ctx.confidence, 0.98)  # every column's type is known and handled
-    return Scalar(frame.code.method("sink_csv", target.code, **kwargs))
+    code = frame.code
+    if isinstance(header, (list, tuple)):
+        names = _header_names(frame, list(header), ctx)
+        if names:
+            code = code.method("rename", names)
+    if not na_rep:
+        if frame.columns is not None and len(frame.columns) == 1:
+            # pandas quotes an empty field when it is the whole line ("" is not a blank line,
+            # which a reader would skip)
+            kwargs["null_value"] = '""'
+        elif frame.columns is None:
+            ctx.lower("a frame of one column: pandas writes a missing value as \"\" and Polars "
+                      "as an empty line, which a reader skips (porter does not know the columns)",
+                      0.9)
+    return Scalar(code.method("sink_csv", target.code, **kwargs))
+
+
+def _header_names(frame: Frame, header: list[Any], ctx: RuleContext) -> dict[str, str]:
+    """header=[...]: new names for the written columns other than the index, in their order."""
+    if frame.columns is None:
+        raise ctx.todo("header= names the written columns in order, which porter does not know "
+                       "here (give columns= too, or run with --data)")
+    written = [c for c in frame.columns if c not in frame.index]
+    if not all(isinstance(h, str) for h in header):
+        raise ctx.todo("header= with names that are not text")
+    if len(header) != len(written):
+        raise ctx.todo(f"header= gives {len(header)} names for {len(written)} columns (pandas raises)")
+    final = [*frame.index, *header]
+    if len(set(final)) != len(final):
+        raise ctx.todo("header= repeats a name (or an index name): Polars writes each name once")
+    return {old: new for old, new in zip(written, header) if old != new}
 
 
 def written_index(frame: Frame, index: bool) -> Frame:
