@@ -14,7 +14,7 @@ import textwrap
 import pytest
 
 from porter.api import OLDEST_PYTHON, convert_source
-from support import assert_same_value, run
+from support import assert_same_value, differential, run
 
 
 @pytest.fixture(autouse=True)
@@ -420,3 +420,47 @@ def test_a_column_stored_into_a_frame_pandas_holds_is_handed_over():
         heavy.index.name = "row"
         heavy["crates_all"] = df["crates"]
         ''', "heavy")
+
+
+# -- values crossing the boundary keep pandas' meaning --------------------------------------
+
+def test_categories_pandas_orders_come_back_as_an_enum_in_that_order():
+    # a Categorical made on pandas sorts and groups in its categories' order, not by text
+    text = differential('''
+        import pandas as pd
+        q = pd.DataFrame({"zone": ["high", "low", "pioneer", "mid", "low", None],
+                          "n": [1, 2, 3, 4, 5, 6]})
+        q["zone"] = pd.Categorical(q["zone"], categories=["pioneer", "low", "mid", "high"],
+                                   ordered=True)
+        s = q.sort_values("zone")
+        g = q.groupby("zone", observed=True)["n"].sum().reset_index()
+        ''', "s", "g").converted_text
+    assert "pl.Enum(" in text
+
+
+@pytest.mark.parametrize("making", [
+    'q["size"].astype(order)',
+    'q["size"].astype(pd.CategoricalDtype(["S", "M", "L", "XL"], ordered=True))',
+    'q["size"].astype("category").cat.reorder_categories(["XL", "L", "M", "S"])',
+    'q["size"].astype("category").cat.set_categories(["L", "S", "M"])',
+])
+def test_categories_written_out_on_pandas_keep_their_order_after_the_hand_over(making):
+    differential(f'''
+        import pandas as pd
+        q = pd.DataFrame({{"size": ["M", "XL", "S", "M", None, "L"], "n": [1, 2, 3, 4, 5, 6]}})
+        order = pd.CategoricalDtype(["S", "M", "L", "XL"], ordered=True)
+        q.insert(0, "row", range(6))
+        q["size"] = {making}
+        s = q.sort_values(["size", "row"])
+        ''', "s")
+
+
+def test_number_categories_made_on_pandas_are_not_taken_for_text():
+    text = differential('''
+        import pandas as pd
+        q = pd.DataFrame({"grade": [3, 1, 2, 1], "n": [1, 2, 3, 4]})
+        q.insert(0, "row", range(4))
+        q["grade"] = pd.Categorical(q["grade"], categories=[1, 2, 3])
+        s = q.sort_values(["grade", "row"])
+        ''', "s").converted_text
+    assert "pl.Enum(" not in text

@@ -154,6 +154,8 @@ class _Walker:
         self.sink_run: int | None = None  # the execution a run of consecutive writes shares
         self.has_next = False  # the statement at hand has another after it in its block
         self.carried: list[cst.EmptyLine] = []  # comments for the next statement (function_def)
+        # names bound to a CategoricalDtype written out (`order = pd.CategoricalDtype([...])`)
+        self.dtype_names: dict[str, cst.BaseExpression] = {}
 
     # blocks ---------------------------------------------------------------------------------
     def block(self, body: Any, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
@@ -539,6 +541,11 @@ class _Walker:
 
     def small(self, stmt: cst.BaseSmallStatement, env: dict[str, Value], indent: str) -> tuple[str | None, list[SiteDraft]]:
         """Rewrite one small statement; None when it stays as written."""
+        if isinstance(stmt, cst.Assign) and len(stmt.targets) == 1 \
+                and isinstance(stmt.targets[0].target, cst.Name):
+            self.dtype_names.pop(stmt.targets[0].target.value, None)
+            if handover.text_categories(stmt.value) is not None:
+                self.dtype_names[stmt.targets[0].target.value] = stmt.value
         back = self.back_to_polars(stmt, env, indent)
         waiting = {n: v for n, v in env.items() if isinstance(v, PandasValue) and v.frame is not None}
         text, sites = back if back is not None else self.rewrite_small(stmt, env, indent)
@@ -560,7 +567,7 @@ class _Walker:
                 continue  # not waiting, or rebound by the statement itself
             assert name is not None
             what = "" if what in ("setitem", "loc", "iloc") else what
-            env[name] = PandasValue(emit.atom(name), frame=_after_change(name, before.frame, stmt, what))
+            env[name] = PandasValue(emit.atom(name), frame=_after_change(name, before.frame, stmt, what, self.dtype_names))
 
     def back_to_polars(self, stmt: cst.BaseSmallStatement, env: dict[str, Value],
                        indent: str) -> tuple[str | None, list[SiteDraft]] | None:
@@ -846,7 +853,7 @@ class _Walker:
         intervals = any(site.key in INTERVAL_MAKERS for site in result.sites)
         # a frame given pandas' Interval values stays pandas (Polars has no type for them)
         env[name] = PandasValue(emit.atom(name),
-                                frame=None if intervals else _after_change(name, frame, statement))
+                                frame=None if intervals else _after_change(name, frame, statement, dtype_names=self.dtype_names))
         if isinstance(statement, (cst.Assign, cst.AugAssign)) and statement.value is not None:
             # other frames the statement reads are handed over too (`other.pct`), never left
             # as LazyFrames or expressions inside pandas code
@@ -1306,7 +1313,7 @@ def _names_read(text: str) -> list[str]:
 
 
 def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
-                  what: str = "") -> Frame | None:
+                  what: str = "", dtype_names: dict[str, cst.BaseExpression] | None = None) -> Frame | None:
     """What porter knows of a frame after a statement kept on pandas changed it, as the frame
     that `pl.from_pandas(name).lazy()` would give back; None when it cannot come back (labels
     held in the index, or pandas' number labels). `what` names an in-place change."""
@@ -1330,6 +1337,11 @@ def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
         # `df["c"] = ...` / `df.loc[m, "c"] = ...`: one column made or changed
         columns = frame.columns if key in frame.columns else (*frame.columns, key)
         dtypes = tuple((c, t) for c, t in frame.dtypes if c != key)
+    if isinstance(key, str) and isinstance(statement, cst.Assign) \
+            and isinstance(target, cst.Subscript) and len(target.slice) == 1 \
+            and handover.text_categories(statement.value, (dtype_names or {}).get) is not None:
+        # `df["c"] = pd.Categorical(..., categories=[...])`: an Enum of pandas' categories
+        dtypes = (*((c, t) for c, t in dtypes if c != key), (key, "enum"))
     return Frame(emit.atom(name), columns=columns, dtypes=dtypes,
                  labels_intact=frame.labels_intact)
 

@@ -195,3 +195,50 @@ def _argument_value(call: PandasCall, arg: cst.Arg) -> Value | None:
                  if a.keyword is None].index(arg)
         value = call.args[index] if index < len(call.args) else None
     return value
+
+
+# `.cat` methods whose first argument lists the new categories in order
+_CATEGORY_LISTS = ("reorder_categories", "set_categories")
+
+
+def text_categories(node: cst.BaseExpression | None,
+                    lookup: Callable[[str], cst.BaseExpression | None] = lambda name: None
+                    ) -> tuple[str, ...] | None:
+    """The categories, when pandas code kept on pandas makes a Categorical whose categories
+    are written out as text, in an order of the script's (`pd.Categorical(s, categories=[...])`,
+    `s.astype(pd.CategoricalDtype([...]))`, `s.cat.reorder_categories([...])`): pandas sorts
+    and groups it in that order, so it comes back to Polars as an Enum of them, not as a
+    Categorical, which Polars orders by text."""
+    if not isinstance(node, cst.Call):
+        return None
+    func = node.func
+    name = func.attr.value if isinstance(func, cst.Attribute) else \
+        func.value if isinstance(func, cst.Name) else None
+    if name == "Categorical":
+        return _text_list(_argument(node, "categories", 1))
+    if name == "CategoricalDtype":
+        return _text_list(_argument(node, "categories", 0))
+    if name == "astype" and isinstance(func, cst.Attribute):
+        dtype = _argument(node, "dtype", 0)
+        if isinstance(dtype, cst.Name):  # a dtype bound to a name: `order = pd.CategoricalDtype([...])`
+            dtype = lookup(dtype.value)
+        return text_categories(dtype, lookup) if isinstance(dtype, cst.Call) else None
+    if name in _CATEGORY_LISTS and isinstance(func, cst.Attribute) \
+            and isinstance(func.value, cst.Attribute) and func.value.attr.value == "cat":
+        return _text_list(_argument(node, "new_categories", 0))
+    return None
+
+
+def _argument(node: cst.Call, keyword: str, position: int) -> cst.BaseExpression | None:
+    for arg in node.args:
+        if arg.keyword is not None and arg.keyword.value == keyword:
+            return arg.value
+    positional = [a for a in node.args if a.keyword is None and not a.star]
+    return positional[position].value if position < len(positional) else None
+
+
+def _text_list(node: cst.BaseExpression | None) -> tuple[str, ...] | None:
+    if not isinstance(node, (cst.List, cst.Tuple)) or not node.elements \
+            or not all(isinstance(e.value, cst.SimpleString) for e in node.elements):
+        return None
+    return tuple(str(e.value.evaluated_value) for e in node.elements)  # type: ignore[attr-defined]
