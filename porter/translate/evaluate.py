@@ -314,10 +314,13 @@ class Evaluator:
         if not frame.labels_intact and not frame.index and frame.binding is not None:
             self.services.labels_needed.add(frame.binding)
 
-    def note_alignment(self, call: PandasCall) -> None:
-        """A call pandas makes on Series or frames of different rows aligns them on their
-        labels: a value among them bound to a name after a filter or sort must hold pandas'
-        own labels, so the next pass has pandas make it (engine.bind)."""
+    def note_alignment(self, key: str, call: PandasCall) -> None:
+        """A call pandas makes on Series or frames of different rows that aligns them on their
+        labels (arithmetic, comparisons, assignment, join on the index, concat side by side…;
+        not a merge on columns): a value among them bound to a name after a filter or sort
+        must hold pandas' own labels, so the next pass has pandas make it (engine.bind)."""
+        if key not in _ALIGNING and not (key == "pd.concat" and _side_by_side(call)):
+            return
         values = [v for v in (call.receiver, *call.args, *call.kwargs.values())
                   if isinstance(v, (Frame, Column))]
         frames = [v if isinstance(v, Frame) else v.frame for v in values]  # type: ignore[union-attr]
@@ -668,7 +671,7 @@ class Evaluator:
         site = SiteDraft(key, entry.rule or "todo" if entry else "todo", "todo", 0.0, message,
                          line, end_line, suggestion)
         fallback = handover.pandas_fallback(call, self.source, node)
-        self.note_alignment(call)
+        self.note_alignment(key, call)
         sites = _child_sites(call, None) + (site,)
         if (call.receiver is None and entry is not None and entry.extra.get("returns") == "frame"
                 and not self.services.inside_from_pandas(node)
@@ -742,6 +745,24 @@ class _TupleKey(Value):
 
 
 # -- helpers ------------------------------------------------------------------------------------
+
+# pandas calls that pair the rows of two Series or frames by their labels
+_ALIGNING = frozenset({
+    "series.arith", "series.compare", "series.logical", "frame.arith", "frame.compare",
+    "frame.setitem", "frame.loc_setitem", "frame.assign", "frame.join", "series.where",
+    "series.mask", "frame.where", "frame.mask", "series.fillna", "frame.fillna",
+    "series.combine_first", "frame.combine_first", "series.update", "frame.update",
+    "series.corr", "series.cov", "frame.corrwith", "series.clip", "frame.clip",
+    "series.between", "frame.insert", "series.eq", "series.ne", "series.lt", "series.le",
+    "series.gt", "series.ge", "series.add", "series.sub", "series.mul", "series.div",
+    "series.truediv", "series.floordiv", "series.mod", "series.pow",
+})
+
+
+def _side_by_side(call: PandasCall) -> bool:
+    axis = call.kwargs.get("axis")
+    return isinstance(axis, Opaque) and axis.const in (1, "columns")
+
 
 _PANDAS_SETTINGS = {"pandas.set_option", "pandas.reset_option", "pandas.get_option",
                     "pandas.option_context", "pandas.describe_option"}
