@@ -464,3 +464,19 @@ def test_number_categories_made_on_pandas_are_not_taken_for_text():
         s = q.sort_values(["grade", "row"])
         ''', "s").converted_text
     assert "pl.Enum(" not in text
+
+
+def test_group_keys_given_as_a_list_reach_pandas_as_a_list():
+    # pandas' groups of groupby(["k"]) have 1-tuple keys; groupby("k") would give scalars
+    text = differential('''
+        import pandas as pd
+        df = pd.DataFrame({"shed": ["north", "south", "north", None], "v": [1.0, 2.0, 3.0, 4.0]})
+        rows = []
+        for key, g in df.groupby(["shed"]):
+            rows.append({"key": str(key), "total": g["v"].sum()})
+        unpacked = []
+        for (shed,), g in df.groupby(["shed"])[["v"]]:
+            unpacked.append(shed)
+        single = [str(key) for key, g in df.groupby("shed")]
+        ''', "rows", "unpacked", "single").converted_text
+    assert 'groupby(["shed"])' in text and 'groupby("shed")' in text

@@ -90,7 +90,8 @@ def groupby(call: PandasCall, ctx: RuleContext) -> Value:
                    sort=bool(call.const("sort", None, True)),
                    dropna=bool(call.const("dropna", None, True)),
                    as_index=bool(call.const("as_index", None, True)),
-                   group_keys=bool(call.const("group_keys", None, True, kinds=(bool,))))
+                   group_keys=bool(call.const("group_keys", None, True, kinds=(bool,))),
+                   key_list=isinstance(by, Opaque) and isinstance(by.const, list))
 
 
 @rule("groupby.getitem")
@@ -102,12 +103,12 @@ def groupby_getitem(call: PandasCall, ctx: RuleContext) -> Value:
         return Grouped(grouped.code, frame=grouped.frame, keys=grouped.keys, sort=grouped.sort,
                        dropna=grouped.dropna, as_index=grouped.as_index,
                        group_keys=grouped.group_keys, selection=(key.const,), single=True,
-                       prepared=grouped.prepared)
+                       prepared=grouped.prepared, key_list=grouped.key_list)
     if isinstance(key, Opaque) and isinstance(key.const, list):
         return Grouped(grouped.code, frame=grouped.frame, keys=grouped.keys, sort=grouped.sort,
                        dropna=grouped.dropna, as_index=grouped.as_index,
                        group_keys=grouped.group_keys, selection=tuple(key.const), single=False,
-                       prepared=grouped.prepared)
+                       prepared=grouped.prepared, key_list=grouped.key_list)
     raise Unsupported("selecting group columns by a computed key")
 
 

@@ -96,7 +96,9 @@ def to_pandas(value: Value) -> Code:
             args["as_index"] = False
         if not value.group_keys:
             args["group_keys"] = False
-        code = to_pandas(value.frame).method("groupby", emit.names_arg(value.keys), **args)
+        # `groupby(["k"])` as written: pandas gives its groups 1-tuple keys then
+        keys = list(value.keys) if value.key_list else emit.names_arg(value.keys)
+        code = to_pandas(value.frame).method("groupby", keys, **args)
         if value.selection is not None:
             code = code.index(value.selection[0] if value.single else list(value.selection))
         return code

@@ -101,6 +101,8 @@ class Grouped(Value):
     selection: tuple[str, ...] | None = field(default=None, kw_only=True)
     single: bool = field(default=False, kw_only=True)
     prepared: bool = field(default=False, kw_only=True)  # `code` is already a LazyGroupBy
+    # the keys were given as a list (`groupby(["k"])`): pandas' group keys are tuples then
+    key_list: bool = field(default=False, kw_only=True)
 
 
 @dataclass(frozen=True)
