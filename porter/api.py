@@ -24,6 +24,9 @@ OLDEST_PYTHON = (3, 11)
 # Without these in the script, no frame can hold a datetime column (CSV scans do not infer dates).
 DATETIME_HINTS = re.compile(r"parse_dates|to_datetime|read_parquet|read_excel|read_json|read_sql|"
                             r"Timestamp|datetime|date_range|\.dt\.|astype\(.datetime")
+# what can make pandas' nullable integer columns (written 2024 where a plain integer column with
+# a missing value, float in pandas, is written 2024.0)
+NULLABLE_INT_HINTS = re.compile(r"U?Int(8|16|32|64)|convert_dtypes|dtype_backend|pd\.NA\b|pd\.array")
 # what can make a category column: pandas sorts it by its categories, not its text
 CATEGORY_HINTS = re.compile(r"categor|Categorical|cut\(|read_parquet|read_feather|read_pickle|"
                             r"read_hdf|read_stata|read_spss")
@@ -54,6 +57,7 @@ def convert_source(text: str, *, path: str | None = None, options: Options | Non
         min_confidence=options.min_confidence,
         schema_lookup=schema_lookup,
         datetimes_possible=bool(DATETIME_HINTS.search(text)),
+        nullable_ints_possible=bool(NULLABLE_INT_HINTS.search(text)),
         categories_possible=bool(CATEGORY_HINTS.search(text)),
     )
     try:

@@ -9,9 +9,9 @@ from typing import Any
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, DTYPES, NA_CONSTANT, NOT_DECOMPRESSED,
-                                     PANDAS_NA_TOKENS, compression_of, is_number, is_url,
-                                     na_value_texts)
+from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_INTS_CONSTANT, DTYPES,
+                                     NA_CONSTANT, NOT_DECOMPRESSED, PANDAS_NA_TOKENS,
+                                     compression_of, is_number, is_url, na_value_texts)
 from porter.analysis.schema import PADDING
 from porter.rules.strings import LIST_STR, list_repr
 from porter.translate import handover
@@ -384,11 +384,11 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     na_rep = call.const("na_rep", None, "", kinds=(str,))
     if na_rep:
         kwargs["null_value"] = na_rep
+    if frame.columns is not None and len(frame.dtypes) == len(frame.columns):
+        ctx.confidence = max(ctx.confidence, 0.98)  # every column's type is known and handled
     text = csv_text_columns(frame, ctx)
     if text:
         frame = derive(frame, frame.code.method("with_columns", *text), same_rows=True)
-    if frame.columns is not None and len(frame.dtypes) == len(frame.columns):
-        ctx.confidence = max(ctx.confidence, 0.98)  # every column's type is known and handled
     code = frame.code
     if isinstance(header, (list, tuple)):
         names = _header_names(frame, list(header), ctx)
@@ -451,6 +451,16 @@ def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
             "replace_strict", {True: "True", False: "False"}))
     if "datetime" in kinds or (ctx.datetimes_possible and not complete):
         out.append(emit.atom(CSV_DATETIMES_CONSTANT))
+    if "int" in kinds or not complete:
+        if ctx.nullable_ints_possible:
+            # pandas' nullable Int64 (astype("Int64"), dtype={"c": "Int64"}) writes 2024
+            # where a plain integer column with a missing value, float in pandas, writes 2024.0;
+            # porter does not tell them apart, and writes integers as integers
+            ctx.lower("the script uses pandas' nullable integers, which porter does not tell "
+                      "from plain ones: an integer column holding a missing value is written "
+                      "2024, as a nullable column is; a plain one is float in pandas (2024.0)", 0.9)
+        else:
+            out.append(emit.atom(CSV_INTS_CONSTANT))
     for name, kind in frame.dtypes:  # lists of text (str.split): pandas writes str(list)
         if kind == LIST_STR and (frame.columns is None or name in frame.columns):
             ctx.lower("a list holding control characters other than \\n \\t \\r is written "

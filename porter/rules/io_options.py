@@ -27,6 +27,20 @@ PANDAS_CSV_DATETIMES = (
 )
 """
 
+# An expression, defined once at the top of a converted script, that writes every integer
+# column the way pandas' to_csv does: pandas holds an integer column that has a missing value
+# as floats, and writes 2024.0 (decided per column from the data).
+CSV_INTS_CONSTANT = "PANDAS_CSV_INTS"
+CSV_INTS_DEFINITION = """\
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+"""
+
 # A function, defined once at the top of a converted script, that divides as pandas divides.
 DIVIDE_FUNCTION = "pandas_div"
 DIVIDE_DEFINITION = """\

@@ -85,6 +85,9 @@ class Services:
     function_defs: dict[str, cst.FunctionDef] = field(default_factory=dict)
     schema_lookup: Callable[[str, str, dict[str, Any]], dict[str, str] | None] | None = None
     datetimes_possible: bool = True
+    # the script may make pandas' nullable integer columns (astype("Int64")), which porter
+    # does not tell from plain ones
+    nullable_ints_possible: bool = True
     # statements that compute each named frame's data, by the assignment that named it
     consumers: dict[int, set[tuple[int, int]]] = field(default_factory=dict)
     # the script may make category columns (astype("category"), cut, a parquet file): a frame
@@ -319,6 +322,14 @@ class Evaluator:
         labels (arithmetic, comparisons, assignment, join on the index, concat side by side…;
         not a merge on columns): a value among them bound to a name after a filter or sort
         must hold pandas' own labels, so the next pass has pandas make it (engine.bind)."""
+        if key in _LABEL_READERS:  # the call reads its receiver's labels
+            receiver = call.receiver
+            if isinstance(receiver, Column) and receiver.binding is not None \
+                    and not receiver.frame.labels_intact and not receiver.frame.index:
+                self.services.labels_needed.add(receiver.binding)
+            elif isinstance(receiver, (Frame, Column)):
+                self.note_labels_read(receiver if isinstance(receiver, Frame) else receiver.frame)
+            return
         if key not in _ALIGNING and not (key == "pd.concat" and _side_by_side(call)):
             return
         values = [v for v in (call.receiver, *call.args, *call.kwargs.values())
@@ -614,6 +625,7 @@ class Evaluator:
         ctx = RuleContext(key, entry, entry.confidence, schema_lookup=self.services.schema_lookup,
                           evaluate=self.evaluate_with,
                           datetimes_possible=self.services.datetimes_possible,
+                          nullable_ints_possible=self.services.nullable_ints_possible,
                           inside_from_pandas=self.services.inside_from_pandas(node),
                           shown=self.services.shown(node),
                           function_def=self.services.function_defs.get)
@@ -756,6 +768,17 @@ _ALIGNING = frozenset({
     "series.between", "frame.insert", "series.eq", "series.ne", "series.lt", "series.le",
     "series.gt", "series.ge", "series.add", "series.sub", "series.mul", "series.div",
     "series.truediv", "series.floordiv", "series.mod", "series.pow",
+})
+
+
+# pandas calls that read their receiver's row labels (they give or use them as values)
+_LABEL_READERS = frozenset({
+    "frame.reset_index", "series.reset_index", "frame.idxmax", "frame.idxmin",
+    "series.idxmax", "series.idxmin", "frame.sort_index", "series.sort_index", "frame.loc",
+    "series.loc", "frame.at", "series.at", "frame.to_csv", "series.to_csv", "frame.to_excel",
+    "frame.iterrows", "frame.itertuples", "series.items", "frame.to_dict", "series.to_dict",
+    "frame.reindex", "series.reindex", "frame.index", "series.index", "frame.first_valid_index",
+    "series.first_valid_index", "frame.last_valid_index", "series.last_valid_index",
 })
 
 

@@ -6,7 +6,8 @@ import libcst as cst
 
 from porter.analysis.imports import ImportFacts
 from porter.rules.io_options import (
-    CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION, DIVIDE_DEFINITION, DIVIDE_FUNCTION,
+    CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION, CSV_INTS_CONSTANT, CSV_INTS_DEFINITION,
+    DIVIDE_DEFINITION, DIVIDE_FUNCTION,
     NA_CONSTANT, PANDAS_NA_TOKENS, QUANTILE_DEFINITION, QUANTILE_FUNCTION,
 )
 
@@ -79,8 +80,10 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
         body.append(stmt)
     if not inserted:
         body = _insert_at_top(body)
-    if CSV_DATETIMES_CONSTANT in used and not _defines(module, CSV_DATETIMES_CONSTANT):
-        body = _insert_after_imports(body, _constant(CSV_DATETIMES_DEFINITION))
+    for constant, definition in ((CSV_INTS_CONSTANT, CSV_INTS_DEFINITION),
+                                 (CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION)):
+        if constant in used and not _defines(module, constant):
+            body = _insert_after_imports(body, _constant(definition))
     for function, definition in ((DIVIDE_FUNCTION, DIVIDE_DEFINITION),
                                  (QUANTILE_FUNCTION, QUANTILE_DEFINITION)):
         if function not in used or _defines(module, function):
