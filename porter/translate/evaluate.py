@@ -322,14 +322,6 @@ class Evaluator:
         labels (arithmetic, comparisons, assignment, join on the index, concat side by side…;
         not a merge on columns): a value among them bound to a name after a filter or sort
         must hold pandas' own labels, so the next pass has pandas make it (engine.bind)."""
-        if key in _LABEL_READERS:  # the call reads its receiver's labels
-            receiver = call.receiver
-            if isinstance(receiver, Column) and receiver.binding is not None \
-                    and not receiver.frame.labels_intact and not receiver.frame.index:
-                self.services.labels_needed.add(receiver.binding)
-            elif isinstance(receiver, (Frame, Column)):
-                self.note_labels_read(receiver if isinstance(receiver, Frame) else receiver.frame)
-            return
         if key not in _ALIGNING and not (key == "pd.concat" and _side_by_side(call)):
             return
         values = [v for v in (call.receiver, *call.args, *call.kwargs.values())
@@ -768,17 +760,6 @@ _ALIGNING = frozenset({
     "series.between", "frame.insert", "series.eq", "series.ne", "series.lt", "series.le",
     "series.gt", "series.ge", "series.add", "series.sub", "series.mul", "series.div",
     "series.truediv", "series.floordiv", "series.mod", "series.pow",
-})
-
-
-# pandas calls that read their receiver's row labels (they give or use them as values)
-_LABEL_READERS = frozenset({
-    "frame.reset_index", "series.reset_index", "frame.idxmax", "frame.idxmin",
-    "series.idxmax", "series.idxmin", "frame.sort_index", "series.sort_index", "frame.loc",
-    "series.loc", "frame.at", "series.at", "frame.to_csv", "series.to_csv", "frame.to_excel",
-    "frame.iterrows", "frame.itertuples", "series.items", "frame.to_dict", "series.to_dict",
-    "frame.reindex", "series.reindex", "frame.index", "series.index", "frame.first_valid_index",
-    "series.first_valid_index", "frame.last_valid_index", "series.last_valid_index",
 })
 
 
