@@ -102,6 +102,7 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo("both frames keep an index that is not exactly the merge keys: "
                        "call reset_index() first")
     lside, rside, suffix = _suffixes(args, lside, rside, coalesced, ctx)
+    widened = _int_keys_widened(lside, rside)
     lside, rside = _common_key_types(lside, rside)
 
     kwargs: dict[str, object] = {}
@@ -130,7 +131,17 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
     if how == "outer" or (args.const("sort", None, False) and how != "cross"):
         code = code.method("sort", _sort_keys(how, lside, rside, coalesced),
                            nulls_last=True, maintain_order=True)
-    dtypes = {**rside.dtypes, **lside.dtypes} if columns is not None else {}
+    # pandas' key column keeps the int type of the left key after a left or inner merge on
+    # one name; with left_on/right_on each key column keeps its own type where the join
+    # leaves it no missing value: the cast to Float64 (for the join) is undone there
+    back = [k for k in widened[0] if how in ("left", "inner")]
+    if not coalesced and lside.columns is not None and how in ("right", "inner"):
+        back += [k for k in widened[1] if k not in lside.columns]
+    if back:
+        code = code.method("with_columns", *(emit.col(k).method("cast", emit.atom("pl.Int64"))
+                                             for k in back))
+    dtypes = {**rside.dtypes, **lside.dtypes, **{k: "int" for k in back}} \
+        if columns is not None else {}
     return Frame(code, columns=columns, labels_intact=True,
                  index=lside.index if lside.index and rside.index else (),
                  dtypes=tuple((c, dtypes[c]) for c in columns or () if c in dtypes))
@@ -278,6 +289,14 @@ def _common_key_types(lside: _Side, rside: _Side) -> tuple[_Side, _Side]:
     return _cast_float(lside, lcast), _cast_float(rside, rcast)
 
 
+def _int_keys_widened(lside: _Side, rside: _Side) -> tuple[list[str], list[str]]:
+    """The int keys of each side _common_key_types casts to Float64 (the other key is float)."""
+    pairs = [(lk, rk, lside.dtypes.get(lk), rside.dtypes.get(rk))
+             for lk, rk in zip(lside.keys, rside.keys)]
+    return ([lk for lk, _, a, b in pairs if (a, b) == ("int", "float")],
+            [rk for _, rk, a, b in pairs if (a, b) == ("float", "int")])
+
+
 def _cast_float(side: _Side, keys: list[str]) -> _Side:
     if not keys:
         return side
@@ -377,6 +396,7 @@ def merge_asof(call: PandasCall, ctx: RuleContext) -> Value:
     lside = _Side(left.code, left.columns, dict(left.dtypes), (lkey, *lby), ())
     rside = _Side(right.code, right.columns, dict(right.dtypes), (rkey, *rby), ())
     lside, rside = _asof_suffixes(args, lside, rside, once, ctx)
+    widened = _int_keys_widened(lside, rside)
     lside, rside = _common_key_types(lside, rside)
     lkey, *lby = lside.keys
     rkey, *rby = rside.keys
