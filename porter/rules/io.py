@@ -353,10 +353,13 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     """DataFrame.to_csv -> LazyFrame.sink_csv.
 
     Handles: index=False; the index columns porter tracks (after a groupby) are written first
-    like pandas writes the index; sep, header, na_rep, columns.
+    like pandas writes the index; sep, header (a list renames the written columns), na_rep,
+    columns.
     Caveats: booleans and datetimes are written as pandas writes them (True/False, no `T`);
-    with the default index=True on a plain frame the write is handed to pandas so the row
-    labels are written.
+    an integer column holding a missing value as floats (2024.0: float64 in pandas), unless
+    the script can make pandas' nullable integers, which porter does not tell apart (0.9); a
+    missing value alone on its line (one column) as "". With the default index=True on a
+    plain frame the write is handed to pandas so the row labels are written.
     """
     ctx.reject_unknown(call, "path_or_buf", "index", "sep", "header", "na_rep", "columns",
                        "encoding", positional=1)
