@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import ast
 import textwrap
+from pathlib import Path
 
 import pytest
 
@@ -480,3 +481,41 @@ def test_group_keys_given_as_a_list_reach_pandas_as_a_list():
         single = [str(key) for key, g in df.groupby("shed")]
         ''', "rows", "unpacked", "single").converted_text
     assert 'groupby(["shed"])' in text and 'groupby("shed")' in text
+
+
+def test_dates_reach_pandas_as_dates_not_timestamps():
+    # pandas' dt.date holds datetime.date objects (NaT where the time is missing); Polars'
+    # to_pandas would make them Timestamps, whose isoformat() and str() differ
+    differential('''
+        import pandas as pd
+        df = pd.DataFrame({"ts": ["2024-01-31 18:00", None, "2024-12-31 06:30"], "v": [1, 2, 3]})
+        df["ts"] = pd.to_datetime(df["ts"])
+        df["day"] = df["ts"].dt.date
+        df["iso"] = df["day"].apply(lambda d: d.isoformat())
+        df["kind"] = df["day"].apply(lambda d: type(d).__name__)
+        rows = []
+        for i in range(1):
+            rows.append(df)  # a loop keeps the frame on pandas
+        whole = [type(d).__name__ for d in rows[0]["day"]]
+        text = [str(d) for d in rows[0]["day"]]
+        ''', "df", "whole", "text")
+
+
+def test_a_missing_flag_reaches_pandas_as_nan():
+    # read_csv gives a blank in a True/False column as NaN, which is true; Polars' to_pandas
+    # would give None, which is false
+    (Path("flags.csv")).write_text("k,flag,n\na,True,1\nb,,\nc,False,3\n", encoding="utf-8")
+    differential('''
+        import pandas as pd
+        def yn(b):
+            try:
+                return "Y" if bool(b) else "N"
+            except TypeError:
+                return "?"
+        df = pd.read_csv("flags.csv")
+        df["yn"] = df["flag"].apply(yn)
+        rows = []
+        for i in range(1):
+            rows.append(df)  # a loop keeps the frame on pandas
+        whole = [yn(b) for b in rows[0]["flag"]]
+        ''', "df", "whole", data_dir=".")

@@ -5,6 +5,7 @@ Every hand-over is written out in the code, so it is visible in review and count
 
 from __future__ import annotations
 
+import keyword
 from collections.abc import Callable
 
 import libcst as cst
@@ -62,6 +63,7 @@ def to_pandas(value: Value) -> Code:
         code = code.method("collect").method("to_pandas")
         if categories:
             code = code.method("astype", {c: "category" for c in categories})
+        code = _as_pandas_made_them(code, value.dtypes)
         if value.index:
             code = code.method("set_index", emit.names_arg(value.index))
         labels = [c for c in value.number_labels if c not in value.index
@@ -84,6 +86,10 @@ def to_pandas(value: Value) -> Code:
             if value.dtype is not None and value.dtype.startswith("list["):
                 # str.split's Python lists: Polars hands each over as a numpy array
                 code = code.method("map", emit.atom("list"), na_action="ignore")
+            elif value.dtype == "date":
+                code = code.attr("dt").attr("date")  # see _as_pandas_made_them
+            elif value.dtype == "bool" and not value.null_is_false:
+                code = code.method("fillna", emit.atom('float("nan")'))
         # a Series pandas made without a name has none (Polars calls it "0")
         return code.method("rename", None) if value.name is None else code
     if isinstance(value, Grouped):
@@ -117,6 +123,24 @@ def to_pandas(value: Value) -> Code:
     if isinstance(value, BoundMethod) and is_pandas(value.receiver):
         return to_pandas(value.receiver).attr(value.name)  # a method or property not called here
     return value.code
+
+
+def _as_pandas_made_them(code: Code, dtypes: tuple[tuple[str, str], ...]) -> Code:
+    """A collected frame's columns as pandas holds them where Polars hands them over otherwise:
+    dates are `datetime.date` objects (`dt.date`; Polars gives datetime64, so a function given
+    them would see Timestamps), and a missing True/False is NaN (Polars gives None, which is
+    false where NaN is true)."""
+    flags = [c for c, t in dtypes if t == "bool"]
+    if flags:
+        code = code.method("fillna", {c: emit.atom('float("nan")') for c in flags})
+    dates = [c for c, t in dtypes if t == "date"]
+    if dates:
+        made = {c: emit.atom(f"lambda frame: frame[{emit.lit(c).text}].dt.date") for c in dates}
+        if all(c.isidentifier() and not keyword.iskeyword(c) for c in dates):
+            code = code.method("assign", **made)
+        else:
+            code = code.method("assign", emit.atom(f"**{emit.render(made)}"))
+    return code
 
 
 def for_display(value: Value) -> Code:
