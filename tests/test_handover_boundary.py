@@ -519,3 +519,16 @@ def test_a_missing_flag_reaches_pandas_as_nan():
             rows.append(df)  # a loop keeps the frame on pandas
         whole = [yn(b) for b in rows[0]["flag"]]
         ''', "df", "whole", data_dir=".")
+
+
+def test_an_integer_column_with_a_gap_comes_back_from_pandas_an_integer():
+    # to_pandas makes an Int64 column with a missing value float64; the converted code after
+    # the hand-over writes it as pandas' Int64 does: 7, not 7.0
+    differential('''
+        import pandas as pd
+        import numpy as np
+        df = pd.DataFrame({"n": [7.0, np.nan, 12.0], "g": ["a", "b", "a"]})
+        df["n"] = df["n"].astype("Int64")
+        df["q"] = np.sqrt(df["n"].astype(float))
+        df["label"] = "#" + df["n"].astype(str)
+        ''', "df")

@@ -1210,10 +1210,13 @@ def _from_pandas(name: str, frame: Frame) -> Code:
     categories, which sorts as pandas sorts them (from_pandas makes them Categorical)."""
     code = emit.pl("from_pandas", emit.atom(name)).method("lazy")
     categories = [c for c, t in frame.dtypes if t in ("category", "enum")]
-    if categories:
+    # an integer column with a missing value reached pandas as float64 (to_pandas): it comes
+    # back an integer, as porter knew it before (pandas' own Int64 writes 7, not 7.0)
+    ints = [c for c, t in frame.dtypes if t == "int"]
+    if categories or ints:
         code = code.method("with_columns", *(
             emit.col(c).method("cast", emit.pl("Enum", emit.atom(f"{name}[{emit.lit(c).text}].cat.categories")))
-            for c in categories))
+            for c in categories), *([emit.call("pl.col", *ints).method("cast", emit.atom("pl.Int64"))] if ints else []))
     return code
 
 
