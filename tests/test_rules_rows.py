@@ -247,3 +247,22 @@ import pandas as pd
 df = pd.DataFrame({"k": ["a", None, "b", "é", "c"], "j": ["b", "x", None, "c", "y"]})
 other = pd.DataFrame({"k": ["b", None, "é", "b"]})
 """ + f"result = {expr}\n")
+
+
+DATED = """\
+import pandas as pd
+df = pd.DataFrame({"t": ["2024-01-31 18:00", "2024-02-01 00:00", "2023-12-31 00:00", None, "2024-02-29 23:59",
+                         "2024-01-01 00:00"], "v": [1, 2, 3, 4, 5, 6]})
+df["d"] = pd.to_datetime(df["t"])
+"""
+
+
+@pytest.mark.parametrize("bounds", [
+    pytest.param('"2024-01-01", "2024-01-31"', id="days: the 31st at 18:00 is after the bound"),
+    pytest.param('"2024-01-01", "2024-02-01 00:00", inclusive="left"', id="a time, inclusive left"),
+    pytest.param('"2024-01", "2024-02"', id="months"),
+    pytest.param('pd.Timestamp("2024-01-01"), "2024-02-29"', id="a Timestamp and a text"),
+])
+def test_between_dates_written_as_text(bounds: str) -> None:
+    # pandas reads the text as dates; Polars had refused to compare datetimes with text
+    differential(DATED + f'result = df[df["d"].between({bounds})]\n')

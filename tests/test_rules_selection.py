@@ -280,3 +280,31 @@ def test_series_explode_matches_pandas(expr: str) -> None:
 
 def test_series_explode_of_text_is_a_todo() -> None:
     check_todo(EXPLODE + 'r = df["job"].explode()\n', "series.explode")
+
+
+@pytest.mark.parametrize("text", [
+    pytest.param("d > '2024-01-15'", id="after a day"),
+    pytest.param("'2024-01-31' <= d < '2024-02-29 23:59'", id="chained, text first, with a time"),
+    pytest.param("d >= '2024-02-01' or v > 5", id="from midnight, or"),
+    pytest.param("`d` < '2024-02'", id="backquoted, a month"),
+])
+def test_query_with_dates_written_as_text(text: str) -> None:
+    # pandas reads the text as a date; Polars had refused to compare datetimes with text
+    differential(f"""
+import pandas as pd
+df = pd.DataFrame({{"t": ["2024-01-31 18:00", "2024-02-01 00:00", "2023-12-31 00:00", None,
+                          "2024-02-29 23:59"], "v": [1, 2, 3, 4, 6]}})
+df["d"] = pd.to_datetime(df["t"])
+result = df.query("{text}")
+""")
+
+
+@pytest.mark.parametrize("text", ["d == '2024-02-01'", "d != '2024-02-01 00:00'"])
+def test_query_equal_to_a_date_written_as_text_is_a_todo(text: str) -> None:
+    # pandas' query finds no date equal to the text (it compares the text itself)
+    check_todo(f"""
+import pandas as pd
+df = pd.DataFrame({{"t": ["2024-02-01 00:00", None], "v": [1, 2]}})
+df["d"] = pd.to_datetime(df["t"])
+result = df.query("{text}")
+""", "frame.query")

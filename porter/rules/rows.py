@@ -302,8 +302,14 @@ def between(call: PandasCall, ctx: RuleContext) -> Value:
     column = call.receiver
     assert isinstance(column, Column)
     ctx.reject_unknown(call, "left", "right", "inclusive", positional=2)
-    left = ctx.expr(call.arg("left", 0), column.frame)
-    right = ctx.expr(call.arg("right", 1), column.frame)
+    from porter.rules.ops import _as_datetime, _date_like
+    bounds = [call.arg("left", 0), call.arg("right", 1)]
+    if any(_date_like(b) for b in bounds) and column.dtype not in ("str", "datetime"):
+        ctx.lower("bounds are dates written as text: pandas parses them when the column "
+                  "holds datetimes", 0.7)
+    # text bounds on a datetime column are dates to pandas ("2024-01-31" is midnight);
+    # Polars refuses to compare datetimes with text
+    left, right = (ctx.expr(_as_datetime(b, column), column.frame) for b in bounds)
     inclusive = call.const("inclusive", None, "both")
     closed = {"both": "both", "neither": "none", "left": "left", "right": "right"}.get(inclusive)
     if closed is None:

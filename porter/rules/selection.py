@@ -278,6 +278,7 @@ class _QueryBuilder:
     def __init__(self, frame: Frame, ctx: RuleContext) -> None:
         self.frame = frame
         self.ctx = ctx
+        self.dated: dict[int, Code] = {}  # text nodes read as dates (see _read_date)
 
     def build(self, node: cst.BaseExpression) -> Code:
         code, _ = self.boolean(node)
@@ -310,9 +311,13 @@ class _QueryBuilder:
         nullable = False
         left_node = node.left
         for target in node.comparisons:
-            left = self.operand(left_node)
             op = cst.Module([]).code_for_node(target.operator).strip()
             right_node = target.comparator
+            if op not in ("in", "not in"):
+                # a date written as text against a datetime column is a date to pandas
+                self._read_date(left_node, right_node, op)
+                self._read_date(right_node, left_node, op)
+            left = self.operand(left_node)
             if op in ("in", "not in"):
                 values = self.operand(right_node)
                 if _may_hold_none(right_node):
@@ -331,13 +336,38 @@ class _QueryBuilder:
                 code = emit.binop(left, op, self.operand(right_node))
                 nullable = True
             parts.append(code)
-            left_node = right_node
+            left_node = target.comparator
         result = parts[0]
         for part in parts[1:]:
             result = emit.binop(result, "&", part)
         return result, nullable
 
+    def _read_date(self, node: cst.BaseExpression, other: cst.BaseExpression, op: str) -> None:
+        """Text compared with a column that holds datetimes is read as pandas reads it: its
+        operand becomes pl.datetime(...), which Polars compares with the column."""
+        if not (isinstance(node, cst.SimpleString) and isinstance(other, cst.Name)):
+            return
+        name = other.value
+        if name.startswith("__var__") or name in ("True", "False", "None"):
+            return
+        if name.startswith("__col__"):
+            name = bytes.fromhex(name[len("__col__"):]).decode()
+        from porter.rules.ops import _as_datetime, _date_like
+        text = Opaque(emit.lit(node.evaluated_value), const=node.evaluated_value)
+        dtype = self.frame.dtype(name)
+        if dtype is None and _date_like(text):
+            self.ctx.lower("comparing with a date written as text: pandas parses it when the "
+                           "column holds datetimes", 0.7)
+        value = _as_datetime(text, Column(emit.col(name), frame=self.frame, name=name, dtype=dtype))
+        if value is not text:
+            if op in ("==", "!="):
+                raise Unsupported("== and != in a query compare the text itself with the dates "
+                                  "(pandas finds no date equal to it)")
+            self.dated[id(node)] = value.code
+
     def operand(self, node: cst.BaseExpression) -> Code:
+        if id(node) in self.dated:
+            return self.dated[id(node)]
         if isinstance(node, cst.Name):
             if node.value.startswith("__var__"):
                 return emit.atom(node.value[len("__var__"):])
