@@ -170,3 +170,16 @@ def test_counting_the_rows_of_loaded_files_reads_no_columns():
         heavy = both_halves[both_halves["tons"] > 1]
         ''', "n", "heavy")
     assert "both_halves = pl.concat" in text and ".collect().lazy()" not in text, text
+
+
+def test_calls_that_read_the_labels_of_a_sorted_frame_see_pandas_labels():
+    # reset_index() and idxmax() of a sorted frame once read positions 0..n-1
+    both('''
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        by_tons = df.sort_values("tons", ascending=False)
+        numbered = by_tons.reset_index()
+        heaviest = by_tons["tons"].idxmax()
+        kept = df[df["crates"] > 1]
+        in_file_order = kept.sort_index()
+        ''', "numbered", "heaviest", "in_file_order")

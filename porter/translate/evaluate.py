@@ -287,7 +287,12 @@ class Evaluator:
                 self.note_labels_read(receiver.frame)
             return self.dispatch(f"series.{name}", PandasCall(receiver, name, node=node), node)
         if isinstance(receiver, Grouped):
-            if name in pandas_names.GROUPBY and name not in (receiver.frame.columns or ()):
+            # pandas looks a column up by attribute only when no method has the name
+            # (g.size() with a "size" column is the method)
+            if name in pandas_names.GROUPBY and (
+                    receiver.selection is not None and receiver.single
+                    or name not in _SERIES_GROUPBY_ONLY
+                    or name not in (receiver.frame.columns or ())):
                 return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
             return self.dispatch("groupby.getitem", PandasCall(
                 receiver, "getitem", (Opaque(emit.lit(name), const=name),), node=node), node)
@@ -322,6 +327,14 @@ class Evaluator:
         labels (arithmetic, comparisons, assignment, join on the index, concat side by side…;
         not a merge on columns): a value among them bound to a name after a filter or sort
         must hold pandas' own labels, so the next pass has pandas make it (engine.bind)."""
+        if key in _LABEL_READERS:  # the call reads its receiver's labels
+            receiver = call.receiver
+            if isinstance(receiver, Column) and receiver.binding is not None \
+                    and not receiver.frame.labels_intact and not receiver.frame.index:
+                self.services.labels_needed.add(receiver.binding)
+            elif isinstance(receiver, (Frame, Column)):
+                self.note_labels_read(receiver if isinstance(receiver, Frame) else receiver.frame)
+            return
         if key not in _ALIGNING and not (key == "pd.concat" and _side_by_side(call)):
             return
         values = [v for v in (call.receiver, *call.args, *call.kwargs.values())
@@ -763,6 +776,17 @@ _ALIGNING = frozenset({
 })
 
 
+# pandas calls that read their receiver's row labels (they give or use them as values)
+_LABEL_READERS = frozenset({
+    "frame.reset_index", "series.reset_index", "frame.idxmax", "frame.idxmin",
+    "series.idxmax", "series.idxmin", "frame.sort_index", "series.sort_index", "frame.loc",
+    "series.loc", "frame.at", "series.at", "frame.to_csv", "series.to_csv", "frame.to_excel",
+    "frame.iterrows", "frame.itertuples", "series.items", "frame.to_dict", "series.to_dict",
+    "frame.reindex", "series.reindex", "frame.index", "series.index", "frame.first_valid_index",
+    "series.first_valid_index", "frame.last_valid_index", "series.last_valid_index",
+})
+
+
 def _side_by_side(call: PandasCall) -> bool:
     axis = call.kwargs.get("axis")
     return isinstance(axis, Opaque) and axis.const in (1, "columns")
@@ -843,6 +867,11 @@ def _rows_kept(key: str, call: PandasCall) -> int | None:
 def _row_wise(call: PandasCall) -> bool:
     axis = call.kwargs.get("axis", call.args[1] if len(call.args) > 1 else None)
     return isinstance(axis, Opaque) and axis.const in (1, "columns")
+
+
+# SeriesGroupBy methods that a DataFrameGroupBy does not have (a column of the name wins there)
+_SERIES_GROUPBY_ONLY = frozenset({"dtype", "is_monotonic_decreasing", "is_monotonic_increasing",
+                                  "nlargest", "nsmallest", "unique"})
 
 
 def _prefix(value: Value) -> str:
