@@ -537,3 +537,18 @@ def test_group_keys_reaches_the_apply_handed_to_pandas() -> None:
     text = check_todo(source, "groupby.apply")
     assert 'groupby("shop", group_keys=False)' in text
     differential(source)
+
+
+def test_a_method_wins_over_a_column_of_its_name() -> None:
+    # pandas reads g.size / g.count / g.mean as the methods even when the frame has columns of
+    # those names; porter had read them as the columns and called a column
+    differential("""
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"k": ["b", "a", "b", None, "é"], "size": ["s", "l", "s", "m", None],
+                   "count": [5, 6, np.nan, 7, 1], "mean": [1.0, None, 3.0, 4.0, 2.0]})
+result = df.groupby("k").size()
+counts = df.groupby("k").count()
+means = df.groupby("k")[["count", "mean"]].mean()
+column = df.groupby("k")["count"].size()
+""", "result", "counts", "means", "column")
