@@ -27,9 +27,10 @@ DATETIME_HINTS = re.compile(r"parse_dates|to_datetime|read_parquet|read_excel|re
 # what can make pandas' nullable integer columns (written 2024 where a plain integer column with
 # a missing value, float in pandas, is written 2024.0)
 NULLABLE_INT_HINTS = re.compile(r"U?Int(8|16|32|64)|convert_dtypes|dtype_backend|pd\.NA\b|pd\.array")
-# what can make a category column: pandas sorts it by its categories, not its text
+# what can make a category column: pandas sorts it by its categories, not its text; or a
+# Period column, which Polars has no type for (a frame pandas made stays pandas then too)
 CATEGORY_HINTS = re.compile(r"categor|Categorical|cut\(|read_parquet|read_feather|read_pickle|"
-                            r"read_hdf|read_stata|read_spss")
+                            r"read_hdf|read_stata|read_spss|to_period|period_range|Period")
 
 
 def parse(text: str, path: str | None = None) -> cst.Module:

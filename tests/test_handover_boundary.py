@@ -532,3 +532,32 @@ def test_an_integer_column_with_a_gap_comes_back_from_pandas_an_integer():
         df["q"] = np.sqrt(df["n"].astype(float))
         df["label"] = "#" + df["n"].astype(str)
         ''', "df")
+
+
+def test_period_values_keep_their_frame_on_pandas():
+    # Polars has no period type: from_pandas keeps an extension column that no cast, sort or
+    # writer takes, so a frame holding Periods is not put back into Polars
+    differential('''
+        import pandas as pd
+        df = pd.DataFrame({"when": ["2024-01-31", "2024-02-01", "2024-02-29", None],
+                           "v": [1, 2, 3, 4]})
+        df["when"] = pd.to_datetime(df["when"])
+        df["month"] = df["when"].dt.to_period("M")
+        m = df.groupby("month")["v"].sum().reset_index()
+        m["month"] = m["month"].astype(str)
+        by_month = df.sort_values(["month", "v"])
+        per = df["when"].dt.to_period("Q")
+        df["q"] = per
+        df["qs"] = df["q"].astype(str)
+        ''', "m", "by_month", "df")
+
+
+def test_a_pandas_made_frame_with_periods_stays_pandas():
+    differential('''
+        import pandas as pd
+        df = pd.DataFrame({"when": pd.to_datetime(["2024-01-31", "2024-02-01", "2024-02-29"]),
+                           "v": [1, 2, 3]})
+        df["month"] = df["when"].dt.to_period("M")
+        m = df.groupby("month")["v"].sum().reset_index()
+        m["month"] = m["month"].astype(str)
+        ''', "m")

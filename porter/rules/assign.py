@@ -16,6 +16,7 @@ from porter.translate.context import (
     with_column_updates,
 )
 from porter.rules.strings import expanded_columns
+from porter.translate.handover import makes_periods
 from porter.translate.values import Column, Frame, Opaque, PandasValue, Parts, Scalar, Value
 
 
@@ -86,6 +87,9 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
             # pandas' Interval values have no Polars type (from_pandas keeps an extension
             # column no writer takes): the statement and the frame stay pandas
             raise Unsupported("pandas' interval labels have no Polars type: the frame stays pandas")
+        if makes_periods(value.code.text):
+            # from_pandas keeps Period values as an extension column no cast or sort takes
+            raise Unsupported("pandas' Period values have no Polars type: the frame stays pandas")
         if value.rows is None or value.rows != frame.rows:
             # pandas aligns the Series on the index: by position it could land on other rows
             raise Unsupported("a Series computed by pandas whose rows porter cannot match to "

@@ -156,6 +156,7 @@ class _Walker:
         self.carried: list[cst.EmptyLine] = []  # comments for the next statement (function_def)
         # names bound to a CategoricalDtype written out (`order = pd.CategoricalDtype([...])`)
         self.dtype_names: dict[str, cst.BaseExpression] = {}
+        self.period_names: set[str] = set()  # names bound to pandas' Period values
 
     # blocks ---------------------------------------------------------------------------------
     def block(self, body: Any, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
@@ -546,6 +547,10 @@ class _Walker:
             self.dtype_names.pop(stmt.targets[0].target.value, None)
             if handover.text_categories(stmt.value) is not None:
                 self.dtype_names[stmt.targets[0].target.value] = stmt.value
+            if handover.makes_periods(self.services.code_for(stmt.value), self.period_names):
+                self.period_names.add(stmt.targets[0].target.value)
+            else:
+                self.period_names.discard(stmt.targets[0].target.value)
         back = self.back_to_polars(stmt, env, indent)
         waiting = {n: v for n, v in env.items() if isinstance(v, PandasValue) and v.frame is not None}
         text, sites = back if back is not None else self.rewrite_small(stmt, env, indent)
@@ -567,7 +572,8 @@ class _Walker:
                 continue  # not waiting, or rebound by the statement itself
             assert name is not None
             what = "" if what in ("setitem", "loc", "iloc") else what
-            env[name] = PandasValue(emit.atom(name), frame=_after_change(name, before.frame, stmt, what, self.dtype_names))
+            env[name] = PandasValue(emit.atom(name), frame=_after_change(
+                name, before.frame, stmt, what, self.dtype_names, self.period_names))
 
     def back_to_polars(self, stmt: cst.BaseSmallStatement, env: dict[str, Value],
                        indent: str) -> tuple[str | None, list[SiteDraft]] | None:
@@ -853,7 +859,9 @@ class _Walker:
         intervals = any(site.key in INTERVAL_MAKERS for site in result.sites)
         # a frame given pandas' Interval values stays pandas (Polars has no type for them)
         env[name] = PandasValue(emit.atom(name),
-                                frame=None if intervals else _after_change(name, frame, statement, dtype_names=self.dtype_names))
+                                frame=None if intervals else _after_change(
+                                    name, frame, statement, dtype_names=self.dtype_names,
+                                    period_names=self.period_names))
         if isinstance(statement, (cst.Assign, cst.AugAssign)) and statement.value is not None:
             # other frames the statement reads are handed over too (`other.pct`), never left
             # as LazyFrames or expressions inside pandas code
@@ -1316,11 +1324,16 @@ def _names_read(text: str) -> list[str]:
 
 
 def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
-                  what: str = "", dtype_names: dict[str, cst.BaseExpression] | None = None) -> Frame | None:
+                  what: str = "", dtype_names: dict[str, cst.BaseExpression] | None = None,
+                  period_names: set[str] | None = None) -> Frame | None:
     """What porter knows of a frame after a statement kept on pandas changed it, as the frame
     that `pl.from_pandas(name).lazy()` would give back; None when it cannot come back (labels
-    held in the index, or pandas' number labels). `what` names an in-place change."""
+    held in the index, pandas' number labels, or Period values, which Polars has no type
+    for). `what` names an in-place change."""
     if not isinstance(frame, Frame) or frame.index or frame.number_labels:
+        return None
+    if statement is not None and handover.makes_periods(
+            cst.Module([]).code_for_node(statement), period_names or set()):
         return None
     columns: tuple[str, ...] | None = None
     dtypes: tuple[tuple[str, str], ...] = ()

@@ -5,6 +5,7 @@ Every hand-over is written out in the code, so it is visible in review and count
 
 from __future__ import annotations
 
+import ast
 import keyword
 from collections.abc import Callable
 
@@ -268,3 +269,22 @@ def _text_list(node: cst.BaseExpression | None) -> tuple[str, ...] | None:
             or not all(isinstance(e.value, cst.SimpleString) for e in node.elements):
         return None
     return tuple(str(e.value.evaluated_value) for e in node.elements)  # type: ignore[attr-defined]
+
+
+# pandas code that makes Period values, which Polars has no type for (from_pandas keeps an
+# extension column that no cast, sort or writer takes)
+PERIOD_MAKERS = ("to_period", "period_range", "Period(", "PeriodIndex", "PeriodDtype")
+
+
+def makes_periods(text: str, period_names: set[str] | frozenset[str] = frozenset()) -> bool:
+    """Whether pandas code may store Period values: it makes them, or reads a name bound to
+    some (`per = s.dt.to_period("M")` earlier)."""
+    if any(maker in text for maker in PERIOD_MAKERS):
+        return True
+    if not period_names:
+        return False
+    try:
+        tree = ast.parse(text.strip())
+    except SyntaxError:
+        return True
+    return any(isinstance(n, ast.Name) and n.id in period_names for n in ast.walk(tree))
