@@ -230,3 +230,19 @@ df["i"] = df["m"].astype(int)
 df["g"] = df["n"].astype("float64")
 result = df
 """)
+
+
+@pytest.mark.parametrize("value", [
+    'df.loc[df["kg"] > 2, "kg"].values * 10',
+    'df.loc[df["kg"] > 2, "kg"].to_numpy()',
+])
+def test_an_array_assigned_into_masked_rows_stays_pandas(value: str) -> None:
+    # pandas places the array over the chosen rows by position; pl.lit(array) in a when()
+    # had raised ShapeError (an array of 2 values against every row)
+    source = """
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"k": ["c", "a", "b", "d"], "kg": [3.0, 1.0, np.nan, 4.0]})
+df.loc[df["kg"] > 2, "w"] = """ + value + "\nresult = df\n"
+    differential(source)
+    check_todo(source, "frame.loc_setitem")

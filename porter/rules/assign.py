@@ -308,6 +308,9 @@ def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
     if frame.columns is None:
         ctx.lower(f"column {name!r} is taken to exist already", 0.9)
     new = emit.when(ctx.expr(rows, frame), code, emit.col(name) if exists else None)
+_ARRAYS = ("series.values", "series.to_numpy", "frame.values", "frame.to_numpy")
+
+
     return with_columns(frame, [(name, new, dtype if dtype == frame.dtype(name) else None)])
 
 
@@ -328,6 +331,11 @@ def astype(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(receiver, Frame)
     if isinstance(target, Opaque) and isinstance(target.const, dict):
         if not all(isinstance(name, str) for name in target.const):
+    if isinstance(value, Scalar) and value.pytype == "array" or isinstance(value, Opaque) \
+            and any(s.key in _ARRAYS for s in value.sites):
+        # an array of the chosen rows' values, placed by position over those rows only
+        raise Unsupported("an array (.values / .to_numpy()) is placed over the chosen rows by "
+                          "position: assign the expression itself (df[\"v\"] * 10)")
             raise Unsupported("columns named by something other than text")
         items = []
         for name, kind in target.const.items():
