@@ -284,6 +284,9 @@ def set_columns(call: PandasCall, ctx: RuleContext) -> Value:
     return derive(frame, code, same_rows=True, columns=tuple(new), dtypes=())
 
 
+_ARRAYS = ("series.values", "series.to_numpy", "frame.values", "frame.to_numpy")
+
+
 @rule("frame.loc_setitem")
 def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
     """df.loc[mask, "c"] = v -> .with_columns(c=pl.when(mask).then(v).otherwise(pl.col("c"))).
@@ -304,13 +307,15 @@ def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
         return with_columns(frame, [(name, code, dtype)])
     if not isinstance(rows, Column):
         raise Unsupported("rows chosen by index label")
+    if isinstance(value, Scalar) and value.pytype == "array" or isinstance(value, Opaque) \
+            and any(s.key in _ARRAYS for s in value.sites):
+        # an array of the chosen rows' values, placed by position over those rows only
+        raise Unsupported("an array (.values / .to_numpy()) is placed over the chosen rows by "
+                          "position: assign the expression itself (df[\"v\"] * 10)")
     exists = frame.columns is None or name in frame.columns
     if frame.columns is None:
         ctx.lower(f"column {name!r} is taken to exist already", 0.9)
     new = emit.when(ctx.expr(rows, frame), code, emit.col(name) if exists else None)
-_ARRAYS = ("series.values", "series.to_numpy", "frame.values", "frame.to_numpy")
-
-
     return with_columns(frame, [(name, new, dtype if dtype == frame.dtype(name) else None)])
 
 
@@ -331,11 +336,6 @@ def astype(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(receiver, Frame)
     if isinstance(target, Opaque) and isinstance(target.const, dict):
         if not all(isinstance(name, str) for name in target.const):
-    if isinstance(value, Scalar) and value.pytype == "array" or isinstance(value, Opaque) \
-            and any(s.key in _ARRAYS for s in value.sites):
-        # an array of the chosen rows' values, placed by position over those rows only
-        raise Unsupported("an array (.values / .to_numpy()) is placed over the chosen rows by "
-                          "position: assign the expression itself (df[\"v\"] * 10)")
             raise Unsupported("columns named by something other than text")
         items = []
         for name, kind in target.const.items():
