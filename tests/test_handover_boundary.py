@@ -561,3 +561,22 @@ def test_a_pandas_made_frame_with_periods_stays_pandas():
         m = df.groupby("month")["v"].sum().reset_index()
         m["month"] = m["month"].astype(str)
         ''', "m")
+
+
+@pytest.mark.parametrize("making", [
+    'q["size"].astype(order)',
+    'q["size"].astype(pd.CategoricalDtype(["S", "M", "L", "XL"], ordered=True))',
+    'pd.Categorical(q["size"], categories=["XL", "S", "M", "L"])',
+    'q["size"].astype("category").cat.reorder_categories(["XL", "L", "M", "S"])',
+])
+def test_categories_put_back_from_pandas_keep_their_order(making):
+    # the column pandas computes row for row is put back into the Polars frame (pl.Series):
+    # as an Enum of the categories written out, not a Categorical Polars orders by text
+    differential(f'''
+        import pandas as pd
+        q = pd.DataFrame({{"size": ["M", "XL", "S", "M", None, "L"], "n": [1, 2, 3, 4, 5, 6]}})
+        order = pd.CategoricalDtype(["S", "M", "L", "XL"], ordered=True)
+        q["size"] = {making}
+        s = q.sort_values(["size", "n"])
+        g = q.groupby("size", observed=True)["n"].sum().reset_index()
+        ''', "s", "g")

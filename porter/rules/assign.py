@@ -16,7 +16,7 @@ from porter.translate.context import (
     with_column_updates,
 )
 from porter.rules.strings import expanded_columns
-from porter.translate.handover import makes_periods
+from porter.translate.handover import makes_periods, text_categories
 from porter.translate.values import Column, Frame, Opaque, PandasValue, Parts, Scalar, Value
 
 
@@ -97,8 +97,31 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
                               "pandas")
         ctx.needs_review("a Series computed by pandas, row for row from this frame, is put back "
                          "by position; port the computation to an expression")
-        return emit.call("pl.Series", value.code, nan_to_null=True), None
+        series = emit.call("pl.Series", value.code, nan_to_null=True)
+        made = made_categories(value.code.text)
+        if made is not None:
+            # pandas sorts and groups a Categorical in its categories' order: an Enum of them
+            return series.method("cast", emit.pl("Enum", list(made))), "enum"
+        return series, None
     raise Unsupported("this value cannot be assigned as a column")
+
+
+def made_categories(text: str) -> tuple[str, ...] | None:
+    """The categories of a Categorical the pandas code `text` makes with them written out;
+    a TODO when it is given a dtype bound to a name (`astype(order)`): the statement is then
+    kept on pandas, and the frame comes back with an Enum of the categories (engine)."""
+    try:
+        node = cst.parse_expression(text)
+    except cst.ParserSyntaxError:
+        return None
+    if isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute) \
+            and node.func.attr.value == "astype" and node.args \
+            and isinstance(node.args[0].value, cst.Name) and node.args[0].keyword is None \
+            and node.args[0].value.value not in ("str", "int", "float", "bool", "object"):
+        raise Unsupported(f"`astype({node.args[0].value.value})`: a dtype bound to a name may be a "
+                          "Categorical, which pandas orders by its categories: the statement "
+                          "stays pandas")
+    return text_categories(node)
 
 
 # calls whose pandas result can hold Interval values (bins without labels)
