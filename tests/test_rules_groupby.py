@@ -552,3 +552,23 @@ counts = df.groupby("k").count()
 means = df.groupby("k")[["count", "mean"]].mean()
 column = df.groupby("k")["count"].size()
 """, "result", "counts", "means", "column")
+
+
+def test_scalar_reductions_are_numpy_numbers_as_in_pandas() -> None:
+    # pandas' reductions are np.float64 / np.int64: an empty selection divides to NaN (a
+    # Python float from .item() raised ZeroDivisionError) and .round() / .astype() exist
+    import warnings
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore", RuntimeWarning)
+        differential("""
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"k": ["a", "b", "a", None], "v": [1.5, 2.0, 3.25, np.nan], "n": [1, 2, 3, 4]})
+sub = df[df["k"] == "zzz"]
+avg = sub["v"].sum() / len(sub)
+rate = sub["n"].sum() / sub["n"].count()
+mean = df["v"].mean().round(2)
+tot = df["n"].sum().astype(float)
+share = df["n"].sum() / sub["n"].sum()
+kinds = [type(df["v"].sum()).__name__, type(df["n"].sum()).__name__, type(df["v"].mean()).__name__]
+""", "avg", "rate", "mean", "tot", "share", "kinds")

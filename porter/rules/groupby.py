@@ -278,15 +278,29 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
 def scalar_of(column: Column, expr: Code, pytype: str | None = None, *,
               collected: Code | None = None) -> Scalar:
     """A reduction of a column: `expr` inside expressions of its frame, `collected` (default
-    `expr`) as the Python value."""
-    code = column.frame.code.method("select", collected if collected is not None else expr) \
-        .method("collect").method("item")
-    agg_column = Column(expr, frame=column.frame, name=column.name, refs=column.refs,
-                        versions=column.versions)
+    `expr`) as the Python value.
+
+    A number is numpy's, as pandas gives it (np.float64, np.int64): it divides by zero to
+    inf/NaN where a Python float raises ZeroDivisionError, has .round() / .astype(), and
+    round() rounds it as pandas' value rounds."""
+    value = collected if collected is not None else expr
     if collected is not None and collected != expr:
         # the Python value is NaN where pandas' is; marked float, it is made null again inside
         # another frame's expressions (context.expr_in)
-        return Scalar(code, pytype="float", agg=agg_column)
+        pytype = "float"
+    elif pytype is None and expr.text.endswith(".sum()") and column.dtype in ("int", "float"):
+        pytype = column.dtype
+    if pytype in ("int", "float"):
+        code = column.frame.code.method("select", value)
+        if not (value.text.endswith(".cast(pl.Int64)") or collected is not None and collected != expr):
+            # an integer as np.int64, as pandas' (an Int32 sum would wrap around in numpy
+            # arithmetic); a float, whatever porter took the column to be, stays a float
+            code = code.method("cast", emit.atom("{pl.selectors.integer(): pl.Int64}"))
+        code = code.method("collect").method("to_series").method("to_numpy").index(0)
+    else:
+        code = column.frame.code.method("select", value).method("collect").method("item")
+    agg_column = Column(expr, frame=column.frame, name=column.name, refs=column.refs,
+                        versions=column.versions)
     return Scalar(code, pytype=pytype, agg=agg_column)
 
 
