@@ -28,15 +28,22 @@ df = pd.DataFrame({
 
 PORTS = [
     pytest.param('df["d"] = df["kg"] * 2', 'df = df.with_columns(d=pl.col("kg") * 2)', id="setitem expression"),
-    pytest.param('df["d"] = 1', "df.with_columns(d=pl.lit(1))", id="setitem scalar"),
+    # a whole number is int64 in pandas; Polars' pl.lit(1) would be an Int32, which wraps
+    pytest.param('df["d"] = 1', "df.with_columns(d=pl.lit(1, dtype=pl.Int64))", id="setitem scalar"),
+    pytest.param('df["d"] = 1.5', "df.with_columns(d=pl.lit(1.5))", id="setitem float scalar"),
     pytest.param('df["d"] = df["kg"] > 1', 'd=(pl.col("kg") > 1).fill_null(False)',
                  id="comparison with missing stored as False"),
-    pytest.param('df["my col"] = 1', 'pl.lit(1).alias("my col")', id="name that is not an identifier"),
-    pytest.param('df[["kg", "n"]] = 0', "kg=pl.lit(0), n=pl.lit(0)", id="one value into several columns"),
+    pytest.param('df["my col"] = 1', 'pl.lit(1, dtype=pl.Int64).alias("my col")',
+                 id="name that is not an identifier"),
+    pytest.param('df[["kg", "n"]] = 0', "kg=pl.lit(0, dtype=pl.Int64), n=pl.lit(0, dtype=pl.Int64)",
+                 id="one value into several columns"),
+    pytest.param('df["rows"] = len(df)', "rows=pl.lit(df.select(pl.len()).collect().item(), dtype=pl.Int64)",
+                 id="a count broadcast is Int64"),
     pytest.param('r = df.assign(d=lambda d: d["kg"] * 2, e=lambda d: d["d"] + 1)',
                  'df.with_columns(d=pl.col("kg") * 2).with_columns(e=pl.col("d") + 1)',
                  id="assign keyword using an earlier one"),
-    pytest.param('r = df.assign(d=df["n"] * 2, e=1)', 'with_columns(d=pl.col("n") * 2, e=pl.lit(1))',
+    pytest.param('r = df.assign(d=df["n"] * 2, e=1)',
+                 'with_columns(d=pl.col("n") * 2, e=pl.lit(1, dtype=pl.Int64))',
                  id="assign independent keywords together"),
     pytest.param('r = df.rename(columns={"kg": "mass", "zzz": "q"})', 'df.rename({"kg": "mass"})',
                  id="rename drops unknown names"),
@@ -51,8 +58,9 @@ PORTS = [
                  id="loc assignment existing column"),
     pytest.param('df.loc[df["kg"] > 1, "new"] = 1.0', 'new=pl.when(pl.col("kg") > 1).then(pl.lit(1.0))',
                  id="loc assignment new column missing elsewhere"),
+    # True/False as pandas writes them; a blank (NaN in pandas' object column) stays missing
     pytest.param('df["s"] = df["ok"].astype(str)',
-                 'pl.when(pl.col("ok")).then(pl.lit("True")).otherwise(pl.lit("False"))',
+                 'pl.col("ok").replace_strict({True: "True", False: "False"})',
                  id="astype str of booleans"),
     pytest.param('df["b"] = df["kg"].astype(bool)', 'pl.col("kg").cast(pl.Boolean).fill_null(True)',
                  id="astype bool of numbers: missing is True"),
@@ -230,6 +238,37 @@ df["i"] = df["m"].astype(int)
 df["g"] = df["n"].astype("float64")
 result = df
 """)
+
+
+# -- integer widths: a whole number stored as a column is int64 in pandas ----------------------
+
+@pytest.mark.parametrize("statement", [
+    pytest.param('df["c"] = 50000\ndf["sq"] = df["c"] * df["c"]', id="a constant squared"),
+    pytest.param('df = df.assign(c=50000)\ndf["sq"] = df["c"] * df["c"] * df["n"]',
+                 id="assign of a constant"),
+    pytest.param('df["c"] = len(df)\ndf["sq"] = df["c"] * 1_000_000_000', id="a count broadcast"),
+    pytest.param('df.loc[df["n"] > 2, "c"] = 70000\ndf["sq"] = df["c"] * df["c"]',
+                 id="loc of a constant"),
+    pytest.param('df[["c", "e"]] = 80000\ndf["sq"] = df["c"] * df["e"]', id="into two columns"),
+])
+def test_whole_numbers_stored_do_not_wrap_around(statement: str) -> None:
+    # pandas is the reference: 50000 * 50000 is 2500000000 in its int64 (Polars' Int32
+    # literal gave -1794967296)
+    differential(FRAME + statement + "\nresult = df\n")
+
+
+# -- a True/False column read with a blank: pandas' object column of True, False and NaN -------
+
+def test_astype_str_of_booleans_with_a_blank_keeps_it_missing(tmp_path, monkeypatch) -> None:
+    # pandas is the reference: "True", "False", "True", missing (the blank was written "False")
+    (tmp_path / "x.csv").write_text("k,flag\na,TRUE\nb,false\nc,True\nd,\n")
+    monkeypatch.chdir(tmp_path)
+    result = differential('import pandas as pd\ndf = pd.read_csv("x.csv")\n'
+                          'df["txt"] = df["flag"].astype(str)\n'
+                          'result = df[["k", "txt"]]\n'
+                          'missing = int(df["txt"].isna().sum())\n',
+                          "result", "missing", data_dir=str(tmp_path))
+    assert 'pl.col("flag").replace_strict({True: "True", False: "False"})' in result.converted_text
 
 
 @pytest.mark.parametrize("value", [

@@ -372,3 +372,28 @@ def test_other_iterrows_loops_stay_pandas(loop: str) -> None:
     source = FRAME + "out = []\n" + loop + "result = out\n"
     differential(source)
     assert "iterrows()" in convert(source).converted_text
+
+
+# -- integer widths: a lambda's whole numbers are int64 in pandas -------------------------------
+
+@pytest.mark.parametrize("statement", [
+    pytest.param('df["w"] = df["v"].map(lambda x: 50000 if x > 0 else 1)\ndf["w2"] = df["w"] * df["w"]',
+                 id="a if c else b of whole numbers"),
+    pytest.param('df["w"] = df["v"].map(lambda x: 50000 if x > 0 else (7 if x < 0 else 1))\n'
+                 'df["w2"] = df["w"] * df["w"]', id="a nested choice"),
+    pytest.param('df["w"] = df["v"].map(lambda x: 60000)\ndf["w2"] = df["w"] * df["w"]',
+                 id="a constant lambda"),
+])
+def test_whole_numbers_of_a_lambda_do_not_wrap_around(statement: str) -> None:
+    # pandas is the reference: 50000 * 50000 is 2500000000 in its int64 (Polars' Int32
+    # literals gave -1794967296)
+    result = differential(FRAME + statement + "\nresult = df\n")
+    assert "dtype=pl.Int64" in result.converted_text, result.converted_text
+
+
+def test_map_to_true_false_is_a_boolean_column() -> None:
+    # the values of the dict give the result's type: True/False, with a missing value where
+    # the key is not in the dict (NaN in pandas' object column, which numpy takes as true)
+    result = differential(FRAME + 'df["b"] = df["k"].map({"a": True, "b": False})\n'
+                          'df["yn"] = np.where(df["b"], "Y", "N")\nresult = df\n')
+    assert 'pl.when(pl.col("b").fill_null(True))' in result.converted_text, result.converted_text

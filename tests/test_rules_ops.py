@@ -59,6 +59,13 @@ PORTS = [
     pytest.param('df["r"] = df["i"].clip(lower=1)', 'pl.col("i").clip(1, None)', id="clip lower only"),
     pytest.param('df["r"] = np.where(df["a"] > 0, "pos", "other")',
                  'pl.when(pl.col("a") > 0).then(pl.lit("pos")).otherwise(pl.lit("other"))', id="np.where text"),
+    # whole numbers in both branches: int64 as numpy makes them (Polars' literals are Int32)
+    pytest.param('df["r"] = np.where(df["a"] > 0, 50000, 1)',
+                 'pl.when(pl.col("a") > 0).then(pl.lit(50000, dtype=pl.Int64)).otherwise(1)',
+                 id="np.where whole numbers"),
+    pytest.param('df["r"] = np.where(df["a"] > 0, df["i"], 1)',
+                 'pl.when(pl.col("a") > 0).then(pl.col("i")).otherwise(1)',
+                 id="np.where whole number beside a column takes its type"),
 ]
 
 
@@ -330,3 +337,59 @@ def test_datetime_comparison_with_parse_dates(tmp_path, monkeypatch) -> None:
     assert 'pl.col("arrive") >= pl.datetime(2024, 3, 1)' in result.converted_text
     site = next(s for s in result.sites if s.key == "series.compare")
     assert site.confidence == 1.0
+
+
+# -- integer widths ---------------------------------------------------------------------------
+
+@pytest.mark.parametrize("statement", [
+    pytest.param('df["w"] = np.where(df["a"] > 0, 50000, 1)\ndf["w2"] = df["w"] * df["w"]',
+                 id="np.where of whole numbers squared"),
+    pytest.param('df["w"] = np.where(df["p"], 1, 60000)\ndf["w2"] = df["w"] * df["w"] * df["i"]',
+                 id="np.where of a boolean column"),
+    pytest.param('df["w"] = np.where(df["a"] > 0, 50000, 0.5)\ndf["w2"] = df["w"] * df["w"]',
+                 id="a float branch"),
+])
+def test_np_where_of_whole_numbers_does_not_wrap_around(statement: str) -> None:
+    # pandas is the reference: numpy makes the branches int64 (2500000000; Polars' Int32
+    # literals gave -1794967296)
+    differential(FRAME + statement + "\nresult = df\n")
+
+
+# -- True/False columns read with blanks: pandas' object columns of True, False and NaN --------
+
+BLANKS = "k,a,b,v\nw,True,True,1\nx,,True,2\ny,,False,3\nz,False,,4\nu,True,,5\nt,False,False,6\n"
+
+
+@pytest.mark.parametrize("expr", [
+    pytest.param('df["a"] & df["b"]', id="and"),
+    pytest.param('df["a"] | df["b"]', id="or: NaN | True is False"),
+    pytest.param('df["a"] ^ df["b"]', id="xor"),
+    pytest.param('df["b"] | df["a"]', id="or, blanks on both sides"),
+    pytest.param('df["a"] | (df["v"] > 3)', id="or with a comparison"),
+    pytest.param('(df["v"] > 3) | df["a"]', id="a comparison or a column with blanks"),
+    pytest.param('(df["v"] > 3) ^ df["b"]', id="a comparison xor a column with blanks"),
+    pytest.param('df["a"] | True', id="or with a constant"),
+    pytest.param('np.where(df["a"], "Y", "N")', id="np.where: NaN is true"),
+    pytest.param('np.where(df["a"] | df["b"], "Y", "N")', id="np.where of an or"),
+    pytest.param('np.where(df["k"].map({"w": True, "x": False, "y": True}), "P", "U")',
+                 id="np.where of a map with a missing key"),
+])
+def test_logic_on_columns_with_blanks_matches_pandas(expr: str, tmp_path, monkeypatch) -> None:
+    # pandas is the reference: a blank is NaN in an object column; & | ^ give False wherever
+    # the left operand is NaN and read a NaN on the right as False; numpy takes NaN as true
+    (tmp_path / "x.csv").write_text(BLANKS)
+    monkeypatch.chdir(tmp_path)
+    mask = expr if "np.where" not in expr else 'df["v"] > 0'  # the rows it keeps as a mask
+    source = ("import numpy as np\nimport pandas as pd\ndf = pd.read_csv(\"x.csv\")\n"
+              f"kept = df[{mask}]\ndf[\"out\"] = {expr}\nresult = df\n")
+    result = differential(source, "result", "kept", data_dir=str(tmp_path))
+    assert "TODO(porter)" not in result.converted_text, result.converted_text
+
+
+def test_logic_on_columns_of_unknown_type_lowers_confidence(tmp_path, monkeypatch) -> None:
+    # without --data the column may hold True/False with blanks, which pandas reads as NaN
+    (tmp_path / "x.csv").write_text(BLANKS)
+    monkeypatch.chdir(tmp_path)
+    result = convert('import pandas as pd\ndf = pd.read_csv("x.csv")\ndf["o"] = df["a"] | df["b"]\n')
+    site = next(s for s in result.sites if s.key == "series.logical")
+    assert site.confidence == 0.9 and "blanks" in site.message

@@ -554,3 +554,27 @@ def test_window_functions_are_expressions_not_python_calls() -> None:
                        '.apply(jump_from_median, raw=True)\n',
                        '(pl.col("v") - pl.col("v").rolling_median(3, min_samples=2))')
     assert "map_elements" not in text and "rolling_map" not in text
+
+
+# -- integer widths: a group's count of True values and its size are int64 in pandas ------------
+
+FLAGS = '''
+import pandas as pd
+df = pd.DataFrame({"k": ["a", "a", "b", "b", "b", None], "ok": [True, False, False, False, True, True],
+                   "n": [1, 2, 3, 4, 5, 6]})
+'''
+
+
+@pytest.mark.parametrize("expr", [
+    pytest.param('df.groupby("k")["ok"].transform("sum") - 3', id="sum of booleans minus 3"),
+    pytest.param('df.groupby("k")["ok"].transform("sum") + df["ok"]', id="sum of booleans plus a flag"),
+    pytest.param('df.groupby("k")["n"].transform("size") - 9', id="size minus 9"),
+    pytest.param('df.groupby("k")["ok"].transform(lambda s: s.sum() - 5)', id="lambda: sum minus 5"),
+    pytest.param('df.groupby("k")["ok"].transform(lambda s: s.sum() + s.sum())',
+                 id="lambda: two sums added"),
+])
+def test_group_counts_do_not_wrap_around(expr: str) -> None:
+    # pandas is the reference: the sum of booleans is int64 (-2 for a group with one True);
+    # Polars' UInt32 gave 4294967294, and a sum typed bool made + a logical or
+    result = differential(FLAGS + f'df["w"] = {expr}\nresult = df\n')
+    assert not result.todos, result.converted_text

@@ -11,6 +11,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.io import polars_dtype
+from porter.rules.ops import int64_lit
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
     with_column_updates,
@@ -63,11 +64,12 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
         if isinstance(value.const, dict):
             raise Unsupported("a dict assigned as a column: pandas makes its keys the values")
         kind = {bool: "bool", int: "int", float: "float", str: "str"}.get(type(value.const))
-        return emit.pl("lit", value.const), kind
+        # a whole number is int64 in pandas (Polars' pl.lit would make it Int32)
+        return int64_lit(value.const) if kind == "int" else emit.pl("lit", value.const), kind
     if isinstance(value, Scalar):
         if value.agg is not None and value.agg.frame.rows == frame.rows:
             return value.agg.code, None
-        return emit.pl("lit", value.code), None
+        return int64_lit(value.code) if value.pytype == "int" else emit.pl("lit", value.code), None
     if isinstance(value, Opaque) and any(s.status != "converted" for s in value.sites):
         # the script's own function (or another library) given data from a frame: it may well
         # return a Series, which pandas aligns on the index and pl.lit cannot hold
@@ -383,7 +385,9 @@ def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, st
         if column.dtype is None:
             ctx.lower("booleans become true/false in Polars, True/False in pandas", 0.9)
         else:
-            return (emit.when(code, emit.pl("lit", "True"), emit.pl("lit", "False")), "str")
+            # True/False as pandas writes them; a missing value stays missing (pandas keeps
+            # the NaN of a True/False column read with a blank: it is not "False")
+            return code.method("replace_strict", {True: "True", False: "False"}), "str"
     if kind == "bool":
         if column.dtype == "str":
             return emit.binop(code, "!=", "").method("fill_null", True), "bool"

@@ -18,6 +18,7 @@ from porter.analysis import pandas_names
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
+from porter.rules.ops import int64_branches, int64_lit
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_of, derived_column, value_dtype,
 )
@@ -40,7 +41,10 @@ def element_lambda(node: cst.Lambda, column: Column, ctx: RuleContext) -> Column
     element = replace(column, element=True, sites=())
     result = _checked(ctx.evaluate(node.body, {params[0].name.value: element}), ctx)
     if isinstance(result, Opaque) and result.is_const:
-        return derived_column(column, emit.pl("lit", result.const), name=column.name)
+        # a whole number is int64 in pandas (Polars' pl.lit would make it Int32)
+        whole = isinstance(result.const, int) and not isinstance(result.const, bool)
+        code = int64_lit(result.const) if whole else emit.pl("lit", result.const)
+        return derived_column(column, code, name=column.name, dtype="int" if whole else None)
     if not isinstance(result, Column):
         raise Unsupported("the lambda body has no expression form porter knows")
     code = result.code.method("fill_null", False) if result.null_is_false else result.code
@@ -193,8 +197,12 @@ def map_(call: PandasCall, ctx: RuleContext) -> Value:
             raise Unsupported("apply with a dict")
         # a named dict stays named in the output; a literal is written out
         mapping: object = function.code if function.code.text.isidentifier() else function.const
+        # True/False or text values: the result's type (a value not in the dict is missing,
+        # NaN in pandas); numbers are left untyped (pandas makes whole numbers float there)
+        kinds = {type(v) for v in function.const.values()}
+        dtype = {bool: "bool", str: "str"}.get(kinds.pop()) if len(kinds) == 1 else None
         return derived_column(column, column.code.method("replace_strict", mapping, default=None),
-                              name=column.name)
+                              name=column.name, dtype=dtype)
     if isinstance(function, Opaque) and isinstance(function.node, cst.Lambda):
         result = element_lambda(function.node, column, ctx)
         if call.const("na_action", None, None) == "ignore":
@@ -352,14 +360,17 @@ def element_ifexp(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: a condition on a missing value is False in Python (NaN comparisons) and null in
     Polars; both take the else branch. A plain value as the condition is Python's truth value
-    (nonzero, non-empty; NaN is true).
+    (nonzero, non-empty; NaN is true). Whole numbers in both branches are Int64, as pandas'
+    int64 (Polars' Int32 would wrap around in arithmetic).
     Caveats: a value of unknown type as the condition is a TODO.
     """
     cond = call.receiver
     assert isinstance(cond, Column)
     then, otherwise = call.args
-    code = emit.when(_truth(cond), _branch(then, cond, ctx))
-    other = _branch(otherwise, cond, ctx)
+    # whole numbers in both branches: int64 as pandas makes them (not Polars' Int32)
+    then_code, other = int64_branches(then, otherwise,
+                                      [_branch(v, cond, ctx) for v in (then, otherwise)])
+    code = emit.when(_truth(cond), then_code)
     if other.base is not None and other.base.startswith("pl.when(") and other.steps \
             and other.steps[-1].startswith(".otherwise("):
         # `a if c else (b if d else e)`: one chain, pl.when(c).then(a).when(d).then(b)...

@@ -34,6 +34,10 @@ def agg_expr(column: Code, how: str, dtype: str | None = None) -> Code:
         return column.method(how, ignore_nulls=True)
     if how == "sum" and dtype == "str":  # pandas concatenates text
         return column.attr("str").method("join", "")
+    if how == "sum" and dtype == "bool":
+        # pandas counts the True values as int64; Polars' UInt32 would wrap around below 0
+        # in later arithmetic (the sum - 3 of a group with one True is 4294967294)
+        return column.method("sum").method("cast", emit.atom("pl.Int64"))
     if how == "builtin_sum":  # Python's sum meets NaN: the group's sum is NaN
         return emit.when(emit.binop(column.method("null_count"), "==", 0), column.method("sum"))
     if how in ("builtin_min", "builtin_max"):
@@ -328,11 +332,15 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         expr = code.method(how, ddof=call.const("ddof", None, 1))
     elif how in ("count", "nunique"):
         expr = agg_expr(code, how)
+    elif how == "sum" and column.dtype == "bool":
+        expr = agg_expr(code, how, "bool")  # Int64, as pandas' int64 (Polars' UInt32 wraps)
     else:
         expr = code.method(how)
     if how in NAN_WHEN_EMPTY:
         return scalar_of(column, expr, collected=_nan_when_empty(column, how, expr, ctx))
-    return scalar_of(column, expr)
+    # a count, or a sum of integers or booleans, is a Python int (stored as a column: Int64)
+    whole = how in ("count", "nunique") or how == "sum" and column.dtype in ("int", "bool")
+    return scalar_of(column, expr, "int" if whole else None)
 
 
 NAN_WHEN_EMPTY = ("mean", "median", "min", "max", "std", "var", "quantile")

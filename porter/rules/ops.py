@@ -315,22 +315,60 @@ def _date_like(value: Value) -> bool:
         len(value.const) >= 8 and value.const[:4].isdigit() and value.const[4:5] in "-/"
 
 
+# the last step of a boolean expression that is never missing
+_NEVER_MISSING = (".fill_null(", ".is_null(", ".is_not_null(", ".is_in(", ".ne_missing(",
+                  ".eq_missing(", ".is_duplicated(", ".is_unique(")
+
+
+def may_hold_nan(value: Value, *, unknown: bool = False) -> bool:
+    """A True/False column whose missing values are pandas' NaN, not a comparison's False: a
+    yes/no column read with a blank (pandas makes it an object column of True, False and NaN),
+    the result of map or shift. A comparison (null_is_false) and an expression that is never
+    missing are not. `unknown`: a column of unknown type counts too."""
+    kinds = ("bool", None) if unknown else ("bool",)
+    if not (isinstance(value, Column) and value.dtype in kinds) or value.null_is_false:
+        return False
+    return not (value.code.steps and value.code.steps[-1].startswith(_NEVER_MISSING))
+
+
 @rule("series.logical")
 def logical(call: PandasCall, ctx: RuleContext) -> Value:
     """mask & mask, mask | mask, mask ^ mask -> Expr & | ^.
 
     Handles: Kleene logic with null standing for pandas' False gives the same rows for & and |;
-    ^ fills first.
+    ^ fills first. A True/False column with blanks (object in pandas, True/False/NaN): pandas
+    gives False wherever the left operand is NaN and reads a NaN on the right as False, and
+    the result is True/False (NaN | True is False): the left operand's missing rows are
+    missing in the result (pl.when(a.is_not_null())), which stands for pandas' False.
+    Caveats: a raw column of unknown type (no --data) may be such a column (0.9).
     """
     left, right = call.receiver, call.args[0]
     assert left is not None
     column = base_column(left, right)
     frame = column.frame
+    for value in (left, right):
+        if isinstance(value, Column) and value.dtype is None and not value.null_is_false \
+                and value.name is not None and value.code.text == emit.col(value.name).text:
+            ctx.lower(f"column {value.name!r} of unknown type: if it holds True/False with "
+                      "blanks, pandas reads a blank as NaN, which & | ^ make False (run with "
+                      "--data to know the type)", 0.9)
+    nan_left = may_hold_nan(left)
     if call.name == "^":
-        code = emit.binop(ctx.bool_expr(left, frame), "^", ctx.bool_expr(right, frame))
+        rcode = ctx.bool_expr(right, frame)
+        if may_hold_nan(right):
+            rcode = rcode.method("fill_null", False)
+        code = emit.binop(ctx.bool_expr(left, frame), "^", rcode)
+        if nan_left:  # missing stands for pandas' False, filled where stored or negated
+            return derived_column(column, emit.when(left.code.method("is_not_null"), code),
+                                  dtype="bool", null_is_false=True, others=[left, right])
         return derived_column(column, code, dtype="bool", others=[left, right])
-    nullable = any(isinstance(v, Column) and v.null_is_false for v in (left, right))
+    # & and |: Kleene logic gives null (pandas' False) or pandas' value wherever the left
+    # operand is present; NaN | True is False in pandas, True in Polars: kept missing there
+    nullable = nan_left or any(isinstance(v, Column) and (v.null_is_false or may_hold_nan(v))
+                               for v in (left, right))
     code = emit.binop(ctx.expr(left, frame), call.name, ctx.expr(right, frame))
+    if nan_left and call.name == "|":
+        code = emit.when(left.code.method("is_not_null"), code)
     return derived_column(column, code, dtype="bool", null_is_false=nullable, others=[left, right])
 
 
@@ -396,27 +434,37 @@ def clip(call: PandasCall, ctx: RuleContext) -> Value:
     lower = call.arg("lower", 0, None)
     upper = call.arg("upper", 1, None)
     bounds = [b for b in (lower, upper) if b is not None]
-    code = column.code
+    code, dtype = column.code, column.dtype
     if any(isinstance(b, Opaque) and isinstance(b.const, float) for b in bounds) and column.dtype != "float":
-        code = code.method("cast", emit.atom("pl.Float64"))
+        code, dtype = code.method("cast", emit.atom("pl.Float64")), "float"
     if any(isinstance(b, Column) for b in bounds):
         raise Unsupported("bounds given per row")
     args = [ctx.expr(b, column.frame) if b is not None else None for b in (lower, upper)]
-    return derived_column(column, code.method("clip", *args), dtype=column.dtype)
+    return derived_column(column, code.method("clip", *args), dtype=dtype)
 
 
 @rule("np.where")
 def np_where(call: PandasCall, ctx: RuleContext) -> Value:
     """np.where(cond, a, b) -> pl.when(cond).then(a).otherwise(b).
 
-    Handles: a condition that met a missing value takes the otherwise branch, as in pandas.
+    Handles: a condition that met a missing value takes the otherwise branch, as in pandas; a
+    blank of a True/False column (NaN in pandas' object column) is true for numpy and takes
+    the first branch (fill_null(True)); whole numbers in both branches are int64 as in numpy
+    (pl.lit(n, dtype=pl.Int64): Polars would make them Int32, which wraps around in
+    arithmetic).
     """
     if len(call.args) != 3 or call.kwargs:
         raise Unsupported("np.where with one argument returns positions")
     cond, then, other = call.args
     column = base_column(cond, then, other)
     frame = column.frame
-    code = emit.when(ctx.expr(cond, frame), _branch(then, ctx, frame), _branch(other, ctx, frame))
+    then_code, other_code = int64_branches(then, other, [_branch(v, ctx, frame) for v in (then, other)])
+    test = ctx.expr(cond, frame)
+    if may_hold_nan(cond, unknown=True):
+        # a blank of a True/False column is NaN in pandas, which numpy takes as true (a
+        # column of another type fails in pl.when, filled or not)
+        test = test.method("fill_null", True)
+    code = emit.when(test, then_code, other_code)
     return derived_column(column, code, dtype=_common_dtype(then, other), name=None,
                           others=[cond, then, other])
 
@@ -427,6 +475,34 @@ def _branch(value: Value, ctx: RuleContext, frame: Frame) -> Code:
     if isinstance(value, Column):
         return ctx.bool_expr(value, frame)
     return ctx.expr(value, frame)
+
+
+def int64_lit(value: object) -> Code:
+    """A whole number as a column of its own (broadcast, or a branch of pl.when): pandas and
+    numpy make it int64, Polars' pl.lit an Int32, where arithmetic wraps around without an
+    error (50000 * 50000 is -1794967296)."""
+    return emit.pl("lit", value, dtype=emit.atom("pl.Int64"))
+
+
+def _is_whole_number(value: Value) -> bool:
+    if isinstance(value, Opaque) and value.is_const:
+        return isinstance(value.const, int) and not isinstance(value.const, bool)
+    return isinstance(value, Scalar) and value.pytype == "int" and value.agg is None
+
+
+def int64_branches(then: Value, other: Value, codes: list[Code]) -> list[Code]:
+    """The branches of a choice between values (np.where, `a if c else b`), each given as
+    `codes`: where no branch is a column (whose type a whole number takes on, as numpy's and
+    Polars' both do) and none is a float, the first whole number is made Int64 (the other
+    takes its type): the result is int64 as in numpy, not Polars' Int32."""
+    values = (then, other)
+    if any(isinstance(v, Column) for v in values) or any(
+            isinstance(v, Opaque) and isinstance(v.const, float) for v in values):
+        return codes
+    for i, value in enumerate(values):
+        if _is_whole_number(value):
+            return [int64_lit(value.code) if j == i else code for j, code in enumerate(codes)]
+    return codes
 
 
 def _common_dtype(*values: Value) -> str | None:

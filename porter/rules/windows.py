@@ -173,9 +173,12 @@ def group_transform(call: PandasCall, ctx: RuleContext) -> Value:
     how = call.const("func", 0, None, kinds=(str,))
     if how not in TRANSFORMS:
         raise Unsupported("a function porter cannot read: write it as an aggregation .over(keys)")
-    expr = emit.pl("len") if how == "size" else agg_expr(column.code, how, column.dtype)
-    dtype = "int" if how in ("count", "nunique", "size") else \
-        "float" if how in ("mean", "median", "std", "var") else column.dtype
+    # the group size as Int64, as pandas' int64 (Polars' UInt32 would wrap around below 0);
+    # agg_expr makes a count and a sum of booleans Int64 too
+    expr = emit.pl("len").method("cast", emit.atom("pl.Int64")) if how == "size" \
+        else agg_expr(column.code, how, column.dtype)
+    dtype = "int" if how in ("count", "nunique", "size") or how == "sum" and column.dtype == "bool" \
+        else "float" if how in ("mean", "median", "std", "var") else column.dtype
     return derived_column(column, _window(grouped, expr), dtype=dtype)
 
 
@@ -245,7 +248,9 @@ class _GroupReductions(cst.CSTTransformer):
             return updated
         name = f"_porter_reduction_{len(self.bindings)}"
         base = column_of(self.grouped.frame, self.values.name or "")
-        dtype = REDUCTION_TYPES.get(original.func.attr.value, base.dtype)
+        how = original.func.attr.value
+        # the sum of booleans counts them (an int, Int64 from series_reduce)
+        dtype = "int" if how == "sum" and base.dtype == "bool" else REDUCTION_TYPES.get(how, base.dtype)
         self.bindings[name] = derived_column(base, _over(self.grouped, value.agg.code), dtype=dtype,
                                              name=None)
         return cst.Name(name)
