@@ -57,10 +57,26 @@ def test_lists_match_pandas(expr: str) -> None:
     _same_list(run(source)["result"], run(convert(source).converted_text)["result"])
 
 
-def test_text_values_are_lowered() -> None:
-    result = convert(FRAME + 'result = df["k"].tolist()\n')
+def test_values_of_unknown_type_are_lowered() -> None:
+    result = convert('import pandas as pd\ndf = pd.read_csv("x.csv")\nresult = df["k"].tolist()\n')
     site = next(s for s in result.sites if s.key == "series.tolist")
     assert site.confidence == 0.95 and "None" in site.message
+
+
+@pytest.mark.parametrize("expr", [
+    pytest.param('df["k"].tolist()', id="tolist"),
+    pytest.param('df["k"].to_list()', id="to_list"),
+    pytest.param('list(df["k"].to_numpy())', id="to_numpy"),
+    pytest.param('[n for n in df["k"].tolist() if n]', id="truth of a missing text (nan is true)"),
+    pytest.param('[str(n) for n in df["k"].values]', id="str of a missing text is 'nan'"),
+])
+def test_text_values_hold_nan_as_in_pandas(expr: str) -> None:
+    # pandas is the reference: a missing text is nan in pandas' text column (Polars' to_numpy
+    # gave None, which is false and reads 'None')
+    source = FRAME + f"result = {expr}\n"
+    result = convert(source)
+    assert "to_pandas()" in result.converted_text, result.converted_text
+    _same_list(run(source)["result"], run(result.converted_text)["result"])
 
 
 def test_values_of_a_grouped_frame_is_a_todo() -> None:

@@ -21,12 +21,19 @@ def series_values(call: PandasCall, ctx: RuleContext) -> Value:
     """Series.values / to_numpy() / tolist() -> collect the column, .to_numpy() (.tolist()).
 
     Handles: missing numbers become nan (Polars' to_list would give None), and integer columns
-    with missing values become float, as in pandas.
-    Caveats: text columns give None for a missing value where pandas gives nan.
+    with missing values become float, as in pandas; a text column's values are pandas' own
+    (to_pandas()): a missing text is nan there (true, and 'nan' as text), None in Polars.
+    Caveats: a column of unknown type gives None for a missing text where pandas gives nan.
     """
     column = call.receiver
     assert isinstance(column, Column)
     ctx.reject_unknown(call)
+    if column.dtype == "str":
+        ctx.handover = True  # pandas' own values: nan for a missing text, as the script reads it
+        code = _series(column).method("to_pandas")
+        if call.name in ("tolist", "to_list"):
+            return Scalar(code.method("tolist"), pytype="list")
+        return Scalar(code.method("to_numpy"), pytype="array")
     if column.dtype not in ("int", "float", "bool"):
         ctx.lower("a missing text value is None here, nan in pandas", 0.95)
     code = _series(column).method("to_numpy")
