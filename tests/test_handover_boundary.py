@@ -580,3 +580,15 @@ def test_categories_put_back_from_pandas_keep_their_order(making):
         s = q.sort_values(["size", "n"])
         g = q.groupby("size", observed=True)["n"].sum().reset_index()
         ''', "s", "g")
+
+
+def test_a_frame_comes_back_with_the_columns_it_has_before_the_statement():
+    # the statement that brings the frame back makes a column: the casts of the come-back
+    # are for the columns the frame has then, not for that one
+    differential('''
+        import pandas as pd
+        df = pd.DataFrame({"tags": ["a;b", "c", None], "g": ["x", "x", "y"]})
+        df["sz"] = df.groupby("g")["tags"].transform("count") - 3
+        df["pos"] = df["tags"].str.find("e") - 1
+        df["ln"] = df["tags"].str.len() - 4
+        ''', "df")

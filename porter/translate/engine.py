@@ -588,12 +588,15 @@ class _Walker:
         trial = dict(env)
         for name in names:
             trial[name] = env[name].frame  # type: ignore[union-attr, assignment]
+        env_before = dict(trial)
         text, sites = self.rewrite_small(stmt, trial, indent)
         if any(s.status == "todo" for s in sites):
             return None  # the statement needs pandas anyway: the frame stays there
         env.clear()
         env.update(trial)
-        lines = [emit.layout_chain(_from_pandas(name, trial[name]), indent, f"{name} = ")  # type: ignore[arg-type]
+        # each frame as it comes back, not as the statement leaves it (a column it makes is
+        # not there yet)
+        lines = [emit.layout_chain(_from_pandas(name, env_before[name]), indent, f"{name} = ")  # type: ignore[arg-type]
                  for name in names]
         return "\n".join([*lines, text if text is not None else self.services.code_for(stmt).strip()]), sites
 
