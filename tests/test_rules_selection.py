@@ -308,3 +308,38 @@ df = pd.DataFrame({{"t": ["2024-02-01 00:00", None], "v": [1, 2]}})
 df["d"] = pd.to_datetime(df["t"])
 result = df.query("{text}")
 """, "frame.query")
+
+
+GROUPED = """
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"kiln": ["a", "a", "b", None, "é"], "loss": [1.0, 2.0, 4.0, 8.0, np.nan],
+                   "n": [1.25, 2.0, 3.0, 4.0, 5.5]})
+"""
+
+
+@pytest.mark.parametrize("statements", [
+    pytest.param('s = df.groupby("kiln").agg({"loss": ["mean", "max"]})\n'
+                 's.columns = ["_".join(c) for c in s.columns]', id="join MultiIndex pairs"),
+    pytest.param('s = df.groupby("kiln").agg({"loss": ["mean", "max"], "n": "sum"})\n'
+                 's.columns = [f"{a}_{b}" for a, b in s.columns]', id="unpack MultiIndex pairs"),
+    pytest.param('s = df.groupby("kiln")["loss"].agg(["mean", "max"])\n'
+                 's.columns = [c.upper() for c in s.columns]', id="keys stay out of the names"),
+    pytest.param('s = df.groupby("kiln")[["loss"]].sum()\n'
+                 's.columns = ["total_" + c for c in s.columns]', id="prefix every name"),
+    pytest.param('s = df.groupby("kiln")[["loss", "n"]].mean()\n'
+                 'for c in s.columns:\n    s[c] = s[c].round(1)', id="a loop over the columns"),
+    pytest.param('s = df.groupby("kiln")[["loss", "n"]].mean()\ns.columns = ["a", "b"]',
+                 id="a list of names for the columns only"),
+])
+def test_columns_of_a_grouped_frame(statements: str) -> None:
+    # pandas' df.columns leaves out the keys it keeps in the index, and agg with lists gives
+    # (column, function) pairs; porter had iterated Polars' names (keys included, flat)
+    differential(GROUPED + statements + "\nresult = s\nnames = list(s.columns)\n"
+                 "width = len(s.columns)\nshape = s.shape[1]\n", "result", "names", "width", "shape")
+
+
+def test_columns_of_a_multiindex_frame_with_its_keys_back_is_a_todo() -> None:
+    # pandas' columns are then ("kiln", ""), ("loss", "mean"), ...
+    check_todo(GROUPED + 's = df.groupby("kiln").agg({"loss": ["mean", "max"]}).reset_index()\n'
+               "names = list(s.columns)\n", "frame.columns")

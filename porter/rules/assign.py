@@ -281,32 +281,40 @@ def delitem(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("frame.set_columns")
 def set_columns(call: PandasCall, ctx: RuleContext) -> Value:
-    """df.columns = [...] -> .rename(...) pairing old names with new ones by position."""
+    """df.columns = [...] -> .rename(...) pairing old names with new ones by position.
+
+    The columns pandas keeps in the index (a groupby's keys) are not among the names."""
     frame = call.receiver
     assert isinstance(frame, Frame)
     value = call.args[0]
+    from porter.rules.selection import data_columns
+    old_names = data_columns(frame).method("collect_schema").method("names")
     if not (isinstance(value, Opaque) and isinstance(value.const, list)):
         if isinstance(value, Opaque):
-            code = frame.code.method("rename", emit.call(
-                "dict", emit.call("zip", frame.code.method("collect_schema").method("names"), value.code)))
+            code = frame.code.method("rename", emit.call("dict", emit.call("zip", old_names, value.code)))
             ctx.lower("new names are computed at run time", 0.9)
-            return derive(frame, code, same_rows=True, columns=None, dtypes=())
+            return derive(frame, code, same_rows=True, columns=None, dtypes=(), column_pairs=())
         raise Unsupported("new column names from a pandas value")
     new = [str(v) for v in value.const]
     if len(set(new)) != len(new):
         raise Unsupported("the new names repeat a name: pandas keeps two columns of that name, "
                           "Polars cannot")
+    if any(n in frame.index for n in new):
+        raise Unsupported("a new name is the name of an index level: pandas keeps both, Polars "
+                          "cannot")
     if frame.columns is not None:
-        if len(new) != len(frame.columns):
+        data = [c for c in frame.columns if c not in frame.index]
+        if len(new) != len(data):
             raise Unsupported("the number of names differs from the number of columns")
-        mapping = {o: n for o, n in zip(frame.columns, new) if o != n}
+        mapping = {o: n for o, n in zip(data, new) if o != n}
         code = frame.code.method("rename", mapping)
-        kinds = tuple((n, k) for o, n in zip(frame.columns, new) if (k := frame.dtype(o)))
-        return derive(frame, code, same_rows=True, columns=tuple(new), dtypes=kinds)
-    else:
-        code = frame.code.method("rename", emit.call(
-            "dict", emit.call("zip", frame.code.method("collect_schema").method("names"), new)))
-    return derive(frame, code, same_rows=True, columns=tuple(new), dtypes=())
+        kinds = tuple((n, k) for o, n in zip(frame.columns, [mapping.get(c, c) for c in frame.columns])
+                      if (k := frame.dtype(o)))
+        return derive(frame, code, same_rows=True, columns=tuple(mapping.get(c, c) for c in frame.columns),
+                      dtypes=kinds, column_pairs=())
+    code = frame.code.method("rename", emit.call("dict", emit.call("zip", old_names, new)))
+    return derive(frame, code, same_rows=True, columns=(*frame.index, *new) if frame.index else tuple(new),
+                  dtypes=(), column_pairs=())
 
 
 _ARRAYS = ("series.values", "series.to_numpy", "frame.values", "frame.to_numpy")

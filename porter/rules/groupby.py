@@ -3,7 +3,7 @@ value_counts, unique, nunique, describe."""
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import Any
 
 import libcst as cst
@@ -253,6 +253,10 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
                 add(column, how, f"{column}_{how}" if flattened else column)
         if flattened:
             ctx.lower("pandas makes MultiIndex columns here; porter names them column_function", 0.9)
+            result = aggregate(grouped, exprs, names, ctx, dtypes=dtypes)
+            pairs = tuple((f"{column}_{how}", (column, str(how))) for column, hows in spec.items()
+                          for how in (hows if isinstance(hows, list) else [hows]))
+            return replace(result, column_pairs=pairs) if isinstance(result, Frame) else result
         return aggregate(grouped, exprs, names, ctx, dtypes=dtypes)
     if isinstance(spec, list):
         columns = target_columns(grouped, ctx)

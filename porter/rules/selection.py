@@ -171,11 +171,35 @@ def copy(call: PandasCall, ctx: RuleContext) -> Value:
     return call.receiver
 
 
+def data_columns(frame: Frame) -> Code:
+    """The frame without the columns pandas keeps in the index (a groupby's keys): what
+    pandas' df.columns and df.shape[1] count."""
+    return frame.code.method("drop", *frame.index) if frame.index else frame.code
+
+
 @rule("frame.columns")
 def columns(call: PandasCall, ctx: RuleContext) -> Value:
-    """df.columns -> .collect_schema().names() (no data is read)."""
+    """df.columns -> .collect_schema().names() (no data is read).
+
+    Handles: a groupby's keys, which pandas keeps in the index, are left out; the
+    (column, function) pairs of MultiIndex columns (agg with lists) are a list of pairs.
+    """
     frame = frame_of(call)
-    return Scalar(frame.code.method("collect_schema").method("names"), pytype="list[str]", of=frame)
+    pairs = dict(frame.column_pairs)
+    if pairs:
+        names = [c for c in frame.columns if c not in frame.index] if frame.columns is not None \
+            else None
+        if names is None or any(n in pairs for n in names) and not all(n in pairs for n in names):
+            raise ctx.todo("pandas' columns are a MultiIndex here, with columns that are not "
+                           "(column, function) pairs")
+        if any(n in pairs for n in names):
+            ctx.lower("pandas' columns are a MultiIndex: here a list of its (column, function) "
+                      "pairs", 0.9)
+            items = ", ".join(f"({emit.lit(pairs[n][0]).text}, {emit.lit(pairs[n][1]).text})"
+                              for n in names)
+            return Scalar(emit.atom(f"[{items}]"), pytype="list", of=frame)
+    return Scalar(data_columns(frame).method("collect_schema").method("names"),
+                  pytype="list[str]", of=frame)
 
 
 @rule("frame.dtypes")
@@ -198,7 +222,7 @@ def shape(call: PandasCall, ctx: RuleContext) -> Value:
     """df.shape -> (rows, columns): rows counted by a query, columns from the schema;
     df.shape[0] / df.shape[1] compute only the one asked for."""
     frame = frame_of(call)
-    width = emit.call("len", frame.code.method("collect_schema"))
+    width = emit.call("len", data_columns(frame).method("collect_schema"))
     if call.args:
         position = call.args[0].const  # type: ignore[attr-defined]
         if position in (0, -2):

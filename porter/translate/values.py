@@ -60,6 +60,9 @@ class Frame(Value):
     index_unnamed: bool = field(default=False, kw_only=True)  # pandas' index has no name
     # columns pandas labels with the integers 0, 1, … (Polars names them "0", "1", …)
     number_labels: tuple[str, ...] = field(default=(), kw_only=True)
+    # columns pandas labels with a (column, function) pair of MultiIndex columns, flattened
+    # here to "column_function": each flat name with its pair
+    column_pairs: tuple[tuple[str, tuple[str, str]], ...] = field(default=(), kw_only=True)
 
     def dtype(self, column: str) -> str | None:
         return dict(self.dtypes).get(column)
