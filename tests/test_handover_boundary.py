@@ -592,3 +592,17 @@ def test_a_frame_comes_back_with_the_columns_it_has_before_the_statement():
         df["pos"] = df["tags"].str.find("e") - 1
         df["ln"] = df["tags"].str.len() - 4
         ''', "df")
+
+
+def test_an_enum_from_pandas_goes_back_to_pandas_with_all_its_categories_in_order():
+    # observed=False lists unseen categories, in pandas' order; max() reads that order too
+    differential('''
+        import pandas as pd
+        q = pd.DataFrame({"zone": ["high", "low", "mid", "low", None], "n": [1, 2, 3, 4, 5]})
+        q["zone"] = pd.Categorical(q["zone"], categories=["pioneer", "low", "mid", "high"],
+                                   ordered=True)
+        s = q.sort_values(["zone", "n"])
+        g = q.groupby("zone", observed=False)["n"].sum().reset_index()
+        top = q["zone"].max()
+        cats = list(q["zone"].cat.categories)
+        ''', "s", "g", "top", "cats")
