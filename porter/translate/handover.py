@@ -52,7 +52,8 @@ def collected(value: Value) -> Code:
 
 
 def to_pandas(value: Value) -> Code:
-    """The pandas object this value stands for (index restored where porter tracks one)."""
+    """The pandas object this value stands for (index restored where porter tracks one; dates,
+    missing True/False values and categories as pandas holds them)."""
     if isinstance(value, Frame):
         categories = [c for c, t in value.dtypes if t == "category"]
         code = value.code
