@@ -369,6 +369,8 @@ BLANKS = "k,a,b,v\nw,True,True,1\nx,,True,2\ny,,False,3\nz,False,,4\nu,True,,5\n
     pytest.param('(df["v"] > 3) | df["a"]', id="a comparison or a column with blanks"),
     pytest.param('(df["v"] > 3) ^ df["b"]', id="a comparison xor a column with blanks"),
     pytest.param('df["a"] | True', id="or with a constant"),
+    pytest.param('True | df["a"]', id="a constant or a column: the column's NaN gives False"),
+    pytest.param('True ^ df["b"]', id="a constant xor a column"),
     pytest.param('np.where(df["a"], "Y", "N")', id="np.where: NaN is true"),
     pytest.param('np.where(df["a"] | df["b"], "Y", "N")', id="np.where of an or"),
     pytest.param('np.where(df["k"].map({"w": True, "x": False, "y": True}), "P", "U")',

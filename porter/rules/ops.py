@@ -337,9 +337,10 @@ def logical(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: Kleene logic with null standing for pandas' False gives the same rows for & and |;
     ^ fills first. A True/False column with blanks (object in pandas, True/False/NaN): pandas
-    gives False wherever the left operand is NaN and reads a NaN on the right as False, and
-    the result is True/False (NaN | True is False): the left operand's missing rows are
-    missing in the result (pl.when(a.is_not_null())), which stands for pandas' False.
+    gives False wherever the left operand (the column under a scalar: True | s) is NaN and
+    reads a NaN of the other as False, and the result is True/False (NaN | True is False):
+    those rows are missing in the result (pl.when(a.is_not_null())), which stands for
+    pandas' False.
     Caveats: a raw column of unknown type (no --data) may be such a column (0.9).
     """
     left, right = call.receiver, call.args[0]
@@ -352,23 +353,27 @@ def logical(call: PandasCall, ctx: RuleContext) -> Value:
             ctx.lower(f"column {value.name!r} of unknown type: if it holds True/False with "
                       "blanks, pandas reads a blank as NaN, which & | ^ make False (run with "
                       "--data to know the type)", 0.9)
-    nan_left = may_hold_nan(left)
+    # the Series whose operator pandas calls: the left one, or the right one under a scalar
+    # (True | s is s.__ror__(True)); a NaN of it makes the result False, a NaN of the other
+    # operand is read as False
+    first = left if isinstance(left, Column) else right
+    nan_first = may_hold_nan(first)
     if call.name == "^":
-        rcode = ctx.bool_expr(right, frame)
-        if may_hold_nan(right):
-            rcode = rcode.method("fill_null", False)
-        code = emit.binop(ctx.bool_expr(left, frame), "^", rcode)
-        if nan_left:  # missing stands for pandas' False, filled where stored or negated
-            return derived_column(column, emit.when(left.code.method("is_not_null"), code),
+        codes = [ctx.bool_expr(v, frame) for v in (left, right)]
+        codes = [c.method("fill_null", False) if v is not first and may_hold_nan(v) else c
+                 for v, c in zip((left, right), codes)]
+        code = emit.binop(codes[0], "^", codes[1])
+        if nan_first:  # missing stands for pandas' False, filled where stored or negated
+            return derived_column(column, emit.when(first.code.method("is_not_null"), code),
                                   dtype="bool", null_is_false=True, others=[left, right])
         return derived_column(column, code, dtype="bool", others=[left, right])
-    # & and |: Kleene logic gives null (pandas' False) or pandas' value wherever the left
+    # & and |: Kleene logic gives null (pandas' False) or pandas' value wherever the first
     # operand is present; NaN | True is False in pandas, True in Polars: kept missing there
-    nullable = nan_left or any(isinstance(v, Column) and (v.null_is_false or may_hold_nan(v))
-                               for v in (left, right))
+    nullable = any(isinstance(v, Column) and (v.null_is_false or may_hold_nan(v))
+                   for v in (left, right))
     code = emit.binop(ctx.expr(left, frame), call.name, ctx.expr(right, frame))
-    if nan_left and call.name == "|":
-        code = emit.when(left.code.method("is_not_null"), code)
+    if nan_first and call.name == "|":
+        code = emit.when(first.code.method("is_not_null"), code)
     return derived_column(column, code, dtype="bool", null_is_false=nullable, others=[left, right])
 
 
