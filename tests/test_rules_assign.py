@@ -285,3 +285,15 @@ df = pd.DataFrame({"k": ["c", "a", "b", "d"], "kg": [3.0, 1.0, np.nan, 4.0]})
 df.loc[df["kg"] > 2, "w"] = """ + value + "\nresult = df\n"
     differential(source)
     check_todo(source, "frame.loc_setitem")
+
+
+def test_astype_bool_of_booleans_with_a_blank_is_true(tmp_path, monkeypatch) -> None:
+    # pandas is the reference: bool(NaN) is True, so the blank counts as True (2 of 3 rows)
+    (tmp_path / "x.csv").write_text("k,flag,v\na,True,1\nb,,\nc,False,3\n")
+    monkeypatch.chdir(tmp_path)
+    result = differential('import pandas as pd\ndf = pd.read_csv("x.csv")\n'
+                          'df["b"] = df["flag"].astype(bool)\n'
+                          'df["c"] = (df["v"] > 1).astype(bool)\n'
+                          'n = int(df["flag"].astype(bool).sum())\nresult = df\n',
+                          "result", "n", data_dir=str(tmp_path))
+    assert not result.todos, result.converted_text

@@ -401,6 +401,10 @@ def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, st
             return emit.binop(code, "!=", "").method("fill_null", True), "bool"
         if column.dtype in ("int", "float"):
             return code.method("cast", emit.atom(polars)).method("fill_null", True), "bool"
+        if column.dtype == "bool":
+            # a blank of a True/False column is NaN in pandas, which bool() makes True (a
+            # comparison's missing value, pandas' False, was filled with False above)
+            return code.method("fill_null", True), "bool"
         raise Unsupported("astype(bool) depends on the column type (use --data)")
     if kind == "int":
         ctx.lower("pandas raises on missing values when casting to int; Polars keeps them missing", 0.95)
