@@ -30,7 +30,7 @@ NULLABLE_INT_HINTS = re.compile(r"U?Int(8|16|32|64)|convert_dtypes|dtype_backend
 # what can make a category column: pandas sorts it by its categories, not its text; or a
 # Period column, which Polars has no type for (a frame pandas made stays pandas then too)
 CATEGORY_HINTS = re.compile(r"categor|Categorical|cut\(|read_parquet|read_feather|read_pickle|"
-                            r"read_hdf|read_stata|read_spss|to_period|period_range|Period")
+                            r"read_hdf|read_stata|read_spss|to_period|period_range|\bPeriod(Index|Dtype)?\(")
 
 
 def parse(text: str, path: str | None = None) -> cst.Module:

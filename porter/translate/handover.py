@@ -7,6 +7,7 @@ from __future__ import annotations
 
 import ast
 import keyword
+import re
 from collections.abc import Callable
 
 import libcst as cst
@@ -274,13 +275,13 @@ def _text_list(node: cst.BaseExpression | None) -> tuple[str, ...] | None:
 
 # pandas code that makes Period values, which Polars has no type for (from_pandas keeps an
 # extension column that no cast, sort or writer takes)
-PERIOD_MAKERS = ("to_period", "period_range", "Period(", "PeriodIndex", "PeriodDtype")
+PERIOD_MAKERS = re.compile(r"to_period|period_range|\bPeriod(Index|Dtype)?\(")
 
 
 def makes_periods(text: str, period_names: set[str] | frozenset[str] = frozenset()) -> bool:
     """Whether pandas code may store Period values: it makes them, or reads a name bound to
     some (`per = s.dt.to_period("M")` earlier)."""
-    if any(maker in text for maker in PERIOD_MAKERS):
+    if PERIOD_MAKERS.search(text):
         return True
     if not period_names:
         return False
