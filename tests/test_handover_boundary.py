@@ -606,3 +606,23 @@ def test_an_enum_from_pandas_goes_back_to_pandas_with_all_its_categories_in_orde
         top = q["zone"].max()
         cats = list(q["zone"].cat.categories)
         ''', "s", "g", "top", "cats")
+
+
+@pytest.mark.parametrize("making", [
+    'pd.Categorical(q["size"], categories=zones)',
+    'q["size"].astype(pd.CategoricalDtype(zones, ordered=True))',
+    'q["size"].astype("category").cat.reorder_categories(zones)',
+    'q["size"].astype("category").cat.rename_categories({"M": "m", "XL": "a"})',
+    'q["size"].astype("category").cat.add_categories(["A"]).cat.reorder_categories(zones + ["A"])',
+    'pd.Categorical(q["n"], categories=[3, 1, 2, 6, 5, 4])',
+    'pd.Categorical(q["size"], categories=sorted(zones, key=len))',
+])
+def test_categories_in_an_order_of_the_scripts_are_never_sorted_by_text(making):
+    # read through a name, or not readable at all (the frame then stays pandas)
+    differential(f'''
+        import pandas as pd
+        q = pd.DataFrame({{"size": ["M", "XL", "S", "M", None, "L"], "n": [1, 2, 3, 4, 5, 6]}})
+        zones = ["XL", "S", "M", "L"]
+        q["size"] = {making}
+        s = q.sort_values(["size", "n"])
+        ''', "s")

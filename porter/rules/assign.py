@@ -17,7 +17,7 @@ from porter.translate.context import (
     with_column_updates,
 )
 from porter.rules.strings import expanded_columns
-from porter.translate.handover import makes_periods, text_categories
+from porter.translate.handover import makes_periods, orders_categories, text_categories
 from porter.translate.values import Column, Frame, Opaque, PandasValue, Parts, Scalar, Value
 
 
@@ -123,7 +123,11 @@ def made_categories(text: str) -> tuple[str, ...] | None:
         raise Unsupported(f"`astype({node.args[0].value.value})`: a dtype bound to a name may be a "
                           "Categorical, which pandas orders by its categories: the statement "
                           "stays pandas")
-    return text_categories(node)
+    made = text_categories(node)
+    if made is None and orders_categories(node):
+        raise Unsupported("a Categorical whose categories' order porter cannot read here: the "
+                          "statement stays pandas")
+    return made
 
 
 # calls whose pandas result can hold Interval values (bins without labels)

@@ -154,7 +154,8 @@ class _Walker:
         self.sink_run: int | None = None  # the execution a run of consecutive writes shares
         self.has_next = False  # the statement at hand has another after it in its block
         self.carried: list[cst.EmptyLine] = []  # comments for the next statement (function_def)
-        # names bound to a CategoricalDtype written out (`order = pd.CategoricalDtype([...])`)
+        # names bound to a CategoricalDtype or a list (`order = pd.CategoricalDtype([...])`),
+        # which handover.text_categories reads through the name
         self.dtype_names: dict[str, cst.BaseExpression] = {}
         self.period_names: set[str] = set()  # names bound to pandas' Period values
 
@@ -545,7 +546,7 @@ class _Walker:
         if isinstance(stmt, cst.Assign) and len(stmt.targets) == 1 \
                 and isinstance(stmt.targets[0].target, cst.Name):
             self.dtype_names.pop(stmt.targets[0].target.value, None)
-            if handover.text_categories(stmt.value) is not None:
+            if handover.worth_remembering(stmt.value):
                 self.dtype_names[stmt.targets[0].target.value] = stmt.value
             if handover.makes_periods(self.services.code_for(stmt.value), self.period_names):
                 self.period_names.add(stmt.targets[0].target.value)
@@ -1335,6 +1336,10 @@ def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
     for). `what` names an in-place change."""
     if not isinstance(frame, Frame) or frame.index or frame.number_labels:
         return None
+    if isinstance(statement, cst.Assign) and handover.orders_categories(
+            statement.value, (dtype_names or {}).get) and handover.text_categories(
+            statement.value, (dtype_names or {}).get) is None:
+        return None  # categories in an order porter cannot read: Polars would sort by text
     if statement is not None and handover.makes_periods(
             cst.Module([]).code_for_node(statement), period_names or set()):
         return None

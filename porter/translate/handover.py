@@ -228,6 +228,9 @@ def _argument_value(call: PandasCall, arg: cst.Arg) -> Value | None:
 
 # `.cat` methods whose first argument lists the new categories in order
 _CATEGORY_LISTS = ("reorder_categories", "set_categories")
+# `.cat` methods that keep an order of categories other than the sorted one
+_CATEGORY_ORDERS = (*_CATEGORY_LISTS, "add_categories", "remove_categories", "rename_categories",
+                    "remove_unused_categories", "as_ordered")
 
 
 def text_categories(node: cst.BaseExpression | None,
@@ -244,9 +247,9 @@ def text_categories(node: cst.BaseExpression | None,
     name = func.attr.value if isinstance(func, cst.Attribute) else \
         func.value if isinstance(func, cst.Name) else None
     if name == "Categorical":
-        return _text_list(_argument(node, "categories", 1))
+        return _text_list(_argument(node, "categories", 1), lookup)
     if name == "CategoricalDtype":
-        return _text_list(_argument(node, "categories", 0))
+        return _text_list(_argument(node, "categories", 0), lookup)
     if name == "astype" and isinstance(func, cst.Attribute):
         dtype = _argument(node, "dtype", 0)
         if isinstance(dtype, cst.Name):  # a dtype bound to a name: `order = pd.CategoricalDtype([...])`
@@ -254,8 +257,37 @@ def text_categories(node: cst.BaseExpression | None,
         return text_categories(dtype, lookup) if isinstance(dtype, cst.Call) else None
     if name in _CATEGORY_LISTS and isinstance(func, cst.Attribute) \
             and isinstance(func.value, cst.Attribute) and func.value.attr.value == "cat":
-        return _text_list(_argument(node, "new_categories", 0))
+        return _text_list(_argument(node, "new_categories", 0), lookup)
     return None
+
+
+def orders_categories(node: cst.BaseExpression | None,
+                      lookup: Callable[[str], cst.BaseExpression | None] = lambda name: None) -> bool:
+    """Whether pandas code makes a Categorical in an order of its own (categories given, or
+    changed by a `.cat` method), whether or not porter can read them: where it cannot
+    (`text_categories` is None) the frame stays pandas, as Polars would order it by text."""
+    if not isinstance(node, cst.Call):
+        return False
+    func = node.func
+    name = func.attr.value if isinstance(func, cst.Attribute) else \
+        func.value if isinstance(func, cst.Name) else None
+    if name == "Categorical":
+        return _argument(node, "categories", 1) is not None
+    if name == "CategoricalDtype":
+        return _argument(node, "categories", 0) is not None
+    if name == "astype" and isinstance(func, cst.Attribute):
+        dtype = _argument(node, "dtype", 0)
+        if isinstance(dtype, cst.Name):
+            dtype = lookup(dtype.value)
+        return isinstance(dtype, cst.Call) and orders_categories(dtype, lookup)
+    return name in _CATEGORY_ORDERS and isinstance(func, cst.Attribute) \
+        and isinstance(func.value, cst.Attribute) and func.value.attr.value == "cat"
+
+
+def worth_remembering(node: cst.BaseExpression) -> bool:
+    """A value bound to a name that `text_categories` may read through the name: a dtype
+    (`order = pd.CategoricalDtype([...])`) or a list of categories."""
+    return isinstance(node, (cst.List, cst.Tuple)) or orders_categories(node)
 
 
 def _argument(node: cst.Call, keyword: str, position: int) -> cst.BaseExpression | None:
@@ -266,7 +298,11 @@ def _argument(node: cst.Call, keyword: str, position: int) -> cst.BaseExpression
     return positional[position].value if position < len(positional) else None
 
 
-def _text_list(node: cst.BaseExpression | None) -> tuple[str, ...] | None:
+def _text_list(node: cst.BaseExpression | None,
+               lookup: Callable[[str], cst.BaseExpression | None] = lambda name: None
+               ) -> tuple[str, ...] | None:
+    if isinstance(node, cst.Name):  # categories bound to a name: `zones = ["low", "mid"]`
+        node = lookup(node.value)
     if not isinstance(node, (cst.List, cst.Tuple)) or not node.elements \
             or not all(isinstance(e.value, cst.SimpleString) for e in node.elements):
         return None
