@@ -626,3 +626,19 @@ def test_categories_in_an_order_of_the_scripts_are_never_sorted_by_text(making):
         q["size"] = {making}
         s = q.sort_values(["size", "n"])
         ''', "s")
+
+
+def test_a_dropped_column_is_not_cast_on_either_side_of_the_boundary():
+    differential('''
+        import pandas as pd
+        df = pd.DataFrame({"ts": ["2024-01-31 18:00", None], "n": [1, 2], "k": ["a", "b"],
+                           "ok": [True, False]})
+        df["ts"] = pd.to_datetime(df["ts"])
+        df["day"] = df["ts"].dt.date
+        df = df.drop(columns=["n", "day", "ok"])
+        df["w"] = df["k"].str.find("b")
+        df["m"] = df["w"] + 1
+        rows = []
+        for i in range(1):
+            rows.append(df)
+        ''', "df")

@@ -1224,7 +1224,7 @@ def _from_pandas(name: str, frame: Frame) -> Code:
     categories = [c for c, t in frame.dtypes if t in ("category", "enum")]
     # an integer column with a missing value reached pandas as float64 (to_pandas): it comes
     # back an integer, as porter knew it before (pandas' own Int64 writes 7, not 7.0)
-    ints = [c for c, t in frame.dtypes if t == "int"]
+    ints = [c for c, t in frame.dtypes if t == "int" and frame.columns is not None and c in frame.columns]
     if categories or ints:
         code = code.method("with_columns", *(
             emit.col(c).method("cast", emit.pl("Enum", emit.atom(f"{name}[{emit.lit(c).text}].cat.categories")))

@@ -66,7 +66,7 @@ def to_pandas(value: Value) -> Code:
         code = code.method("collect").method("to_pandas")
         if categories:
             code = code.method("astype", {c: "category" for c in categories})
-        code = _as_pandas_made_them(code, value.dtypes)
+        code = _as_pandas_made_them(code, value.dtypes, value.columns)
         if value.index:
             code = code.method("set_index", emit.names_arg(value.index))
         labels = [c for c in value.number_labels if c not in value.index
@@ -128,15 +128,16 @@ def to_pandas(value: Value) -> Code:
     return value.code
 
 
-def _as_pandas_made_them(code: Code, dtypes: tuple[tuple[str, str], ...]) -> Code:
+def _as_pandas_made_them(code: Code, dtypes: tuple[tuple[str, str], ...],
+                         columns: tuple[str, ...] | None) -> Code:
     """A collected frame's columns as pandas holds them where Polars hands them over otherwise:
     dates are `datetime.date` objects (`dt.date`; Polars gives datetime64, so a function given
     them would see Timestamps), and a missing True/False is NaN (Polars gives None, which is
     false where NaN is true)."""
-    flags = [c for c, t in dtypes if t == "bool"]
+    flags = [c for c, t in dtypes if t == "bool"]  # fillna passes over a column not there
     if flags:
         code = code.method("fillna", {c: emit.atom('float("nan")') for c in flags})
-    dates = [c for c, t in dtypes if t == "date"]
+    dates = [c for c, t in dtypes if t == "date" and columns is not None and c in columns]
     if dates:
         made = {c: emit.atom(f"lambda frame: frame[{emit.lit(c).text}].dt.date") for c in dates}
         if all(c.isidentifier() and not keyword.iskeyword(c) for c in dates):
