@@ -250,3 +250,10 @@ def test_interpolate_of_a_column_that_may_be_integer_lowers_confidence() -> None
     result = convert(GAPS + 'df["r"] = df["n"].interpolate()\n')
     site = next(s for s in result.sites if s.key == "series.interpolate")
     assert site.confidence == 0.98 and "integer" in site.message
+
+
+@pytest.mark.parametrize("value", ["0.0", "-1.0"])
+def test_frame_fillna_whole_float_keeps_integer_columns(value: str) -> None:
+    # pandas' int64 column has no missing value and stays int64; fill_null(0.0) had made it
+    # Float64 ("1.0" where pandas writes "1")
+    differential(FRAME + f"r = df.fillna({value})\nresult = r.astype(str)\n")

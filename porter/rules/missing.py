@@ -163,6 +163,12 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(value, Opaque) and value.is_const and not isinstance(value.const, (dict, list)):
         # A Python value (not pl.lit): Polars fills only the columns whose type can hold it.
         code = frame.code.method("fill_null", value.const)
+        if isinstance(value.const, float) and value.const.is_integer():
+            # fill_null(0.0) would make every integer column float; pandas' int64 columns
+            # (no missing value) stay integers: fill them with the whole number
+            code = frame.code.method("with_columns", emit.atom("pl.selectors.float()").method(
+                "fill_null", value.const), emit.atom("pl.selectors.integer()").method(
+                "fill_null", int(value.const)))
         others = [c for c, t in frame.dtypes if _mixes_types(value.const, t)]
         if others and _kind_of(value.const) == "number" \
                 and all(frame.dtype(c) == "str" for c in others):
