@@ -572,3 +572,15 @@ tot = df["n"].sum().astype(float)
 share = df["n"].sum() / sub["n"].sum()
 kinds = [type(df["v"].sum()).__name__, type(df["n"].sum()).__name__, type(df["v"].mean()).__name__]
 """, "avg", "rate", "mean", "tot", "share", "kinds")
+
+
+def test_max_of_a_datetime_column_is_flagged() -> None:
+    # pandas gives a Timestamp (day_name(), quarter...), the converted code a datetime.datetime
+    result = convert("""
+import pandas as pd
+df = pd.DataFrame({"t": ["2024-01-31", "2024-02-29"]})
+df["d"] = pd.to_datetime(df["t"])
+last = df["d"].max()
+""")
+    site = next(s for s in result.sites if s.key == "series.max")
+    assert site.confidence <= 0.9 and "Timestamp" in site.message

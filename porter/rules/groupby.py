@@ -358,6 +358,10 @@ def _nan_when_empty(column: Column, how: str, expr: Code, ctx: RuleContext) -> C
         else column.dtype in ("int", "float", "bool")
     if float_result:
         return expr.method("fill_null", emit.call("float", "nan"))
+    if column.dtype == "datetime":
+        ctx.lower(f"pandas' {how} of a datetime column is a pd.Timestamp, here a datetime."
+                  "datetime: Timestamp-only methods (day_name(), quarter, dayofweek, normalize(), "
+                  "to_period()) fail on it", 0.9)
     what = "an integer or boolean" if column.dtype in ("int", "bool") else \
         "an unknown-type" if column.dtype is None else f"a {column.dtype}"
     missing = "NaT" if column.dtype in ("datetime", "date") else "NaN"
