@@ -250,6 +250,10 @@ result = df
     pytest.param('df.loc[df["n"] > 2, "c"] = 70000\ndf["sq"] = df["c"] * df["c"]',
                  id="loc of a constant"),
     pytest.param('df[["c", "e"]] = 80000\ndf["sq"] = df["c"] * df["e"]', id="into two columns"),
+    pytest.param('rows = len(df)\ndf["c"] = rows * 3\ndf["sq"] = df["c"] * 1_000_000_000',
+                 id="arithmetic on a count"),
+    pytest.param('df["c"] = df["ok"].sum() - 5\ndf["sq"] = df["c"] * 1_000_000_000',
+                 id="a sum of booleans minus a number"),
 ])
 def test_whole_numbers_stored_do_not_wrap_around(statement: str) -> None:
     # pandas is the reference: 50000 * 50000 is 2500000000 in its int64 (Polars' Int32
@@ -297,3 +301,10 @@ def test_astype_bool_of_booleans_with_a_blank_is_true(tmp_path, monkeypatch) -> 
                           'n = int(df["flag"].astype(bool).sum())\nresult = df\n',
                           "result", "n", data_dir=str(tmp_path))
     assert not result.todos, result.converted_text
+
+
+def test_arithmetic_on_whole_numbers_is_one_int64_value() -> None:
+    # len(df) * 3 is a whole number: no doubt that it is a single value, and Int64 as in pandas
+    result = convert(FRAME + 'df["c"] = len(df) * 3 + 1\n')
+    assert "dtype=pl.Int64" in result.converted_text, result.converted_text
+    assert all(s.confidence == 1.0 for s in result.sites if s.key == "frame.setitem"), result.sites

@@ -81,6 +81,8 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
         ctx.lower(f"`{value.code.text}` is a list placed by position; Polars infers its type "
                   "from the Python values (a whole number beside a float is a float in both)", 0.95)
         return emit.call("pl.Series", value.code, nan_to_null=True), None
+    if isinstance(value, Opaque) and value.pytype == "int":
+        return int64_lit(value.code), "int"  # arithmetic on whole numbers (len(df) * 2)
     if isinstance(value, Opaque):
         ctx.lower(f"`{value.code.text}` is taken to be a single value broadcast to every row", 0.8)
         return emit.pl("lit", value.code), None

@@ -580,7 +580,12 @@ class Evaluator:
         if not (_is_series_like(left) or _is_series_like(right)):
             if isinstance(left, Frame) or isinstance(right, Frame):
                 return self.todo_operator(left, right, op, node)
-            return self.generic(node)
+            result = self.generic(node)
+            if isinstance(result, Opaque) and not result.is_const and op in ("+", "-", "*", "//", "%") \
+                    and _whole_number(left) and _whole_number(right):
+                # len(df) * 2, s.sum() - 5: a whole number (stored as a column: Int64, as pandas)
+                result = replace(result, pytype="int")
+            return result
         key = "series.logical" if op in ("&", "|", "^") else "series.arith"
         return self.dispatch(key, PandasCall(left, op, (right,), node=node), node)
 
@@ -743,6 +748,14 @@ class Evaluator:
             # built on a value handed over to pandas: a pandas object, never a plain scalar
             return PandasValue(Code(text, precedence(node)), sites=tuple(rewriter.sites))
         return Opaque(Code(text, precedence(node)), sites=tuple(rewriter.sites))
+
+
+def _whole_number(value: Value) -> bool:
+    """A whole number written out, or a Python value porter knows to be one (len(df), the sum
+    of an integer column)."""
+    if isinstance(value, Opaque) and value.is_const:
+        return isinstance(value.const, int) and not isinstance(value.const, bool)
+    return isinstance(value, (Scalar, Opaque)) and value.pytype == "int"
 
 
 def parts_current(parts: Parts, env: Mapping[str, Value]) -> bool:
