@@ -257,3 +257,11 @@ def test_frame_fillna_whole_float_keeps_integer_columns(value: str) -> None:
     # pandas' int64 column has no missing value and stays int64; fill_null(0.0) had made it
     # Float64 ("1.0" where pandas writes "1")
     differential(FRAME + f"r = df.fillna({value})\nresult = r.astype(str)\n")
+
+
+def test_fillna_with_nan_fills_nothing() -> None:
+    # pandas leaves NaN missing (and text columns alone); fill_null(nan) had made the floats
+    # NaN values Polars does not count as missing, and the text columns the text "nan"
+    differential(FRAME + "r = df.fillna(np.nan)\nresult = r.assign(m=r['a'].isna(), t=r['s'].isna())\n"
+                 "kept = df.assign(a=df['a'].fillna(np.nan))\nmissing = kept['a'].isna().sum()\n",
+                 "result", "kept", "missing")

@@ -84,6 +84,10 @@ def fill_value(value: Value, frame: Frame, ctx: RuleContext) -> Code:
     raise Unsupported("a fill value computed by pandas")
 
 
+def _is_nan(value: object) -> bool:
+    return isinstance(value, float) and value != value
+
+
 def _kind_of(value: object) -> str | None:
     if isinstance(value, bool):
         return "bool"
@@ -118,6 +122,8 @@ def series_fillna(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(column, Column)
     ctx.reject_unknown(call, "value", positional=1)
     value = call.arg("value", 0)
+    if isinstance(value, Opaque) and _is_nan(value.const):
+        return column  # pandas fills NaN with NaN: nothing (fill_null(nan) would fill them)
     if isinstance(value, Opaque) and value.is_const:
         if _mixes_types(value.const, column.dtype):
             raise Unsupported(f"filling {value.const!r} into a {column.dtype} column makes a "
@@ -160,6 +166,8 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
                       "pandas and an error in Polars", 0.9)
         return with_columns(frame, items)
     complete = frame.columns is not None and len(frame.dtypes) == len(frame.columns)
+    if isinstance(value, Opaque) and _is_nan(value.const):
+        return derive(frame, frame.code, same_rows=True)  # pandas fills NaN with NaN: nothing
     if isinstance(value, Opaque) and value.is_const and not isinstance(value.const, (dict, list)):
         # A Python value (not pl.lit): Polars fills only the columns whose type can hold it.
         code = frame.code.method("fill_null", value.const)
