@@ -397,3 +397,10 @@ def test_map_to_true_false_is_a_boolean_column() -> None:
     result = differential(FRAME + 'df["b"] = df["k"].map({"a": True, "b": False})\n'
                           'df["yn"] = np.where(df["b"], "Y", "N")\nresult = df\n')
     assert 'pl.when(pl.col("b").fill_null(True))' in result.converted_text, result.converted_text
+
+
+def test_truth_of_a_mapped_true_false_value_counts_a_missing_one_as_true() -> None:
+    # pandas is the reference: a key missing from the dict gives NaN, which is true in Python
+    result = differential(FRAME + 'df["yn"] = df["k"].map({"a": True, "b": False}).map('
+                          'lambda b: "Y" if b else "N")\nresult = df\n')
+    assert "fill_null(True)" in result.converted_text, result.converted_text

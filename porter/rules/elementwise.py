@@ -18,7 +18,7 @@ from porter.analysis import pandas_names
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.rules.ops import int64_branches, int64_lit
+from porter.rules.ops import int64_branches, int64_lit, may_hold_nan
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_of, derived_column, value_dtype,
 )
@@ -388,8 +388,8 @@ def _truth(cond: Column) -> Code:
     and pl.when takes the otherwise branch there; a plain value is true when nonzero (or
     non-empty), and a missing value reaches Python as NaN, which is true."""
     if cond.dtype == "bool":
-        raw = cond.name is not None and cond.code.text == emit.col(cond.name).text
-        return cond.code.method("fill_null", True) if raw else cond.code
+        # a missing value of a True/False column (not a comparison's) is NaN in pandas: true
+        return cond.code.method("fill_null", True) if may_hold_nan(cond) else cond.code
     if cond.dtype in ("int", "float"):
         return emit.binop(cond.code, "!=", 0).method("fill_null", True)
     if cond.dtype == "str":
