@@ -343,3 +343,20 @@ def test_columns_of_a_multiindex_frame_with_its_keys_back_is_a_todo() -> None:
     # pandas' columns are then ("kiln", ""), ("loss", "mean"), ...
     check_todo(GROUPED + 's = df.groupby("kiln").agg({"loss": ["mean", "max"]}).reset_index()\n'
                "names = list(s.columns)\n", "frame.columns")
+
+
+@pytest.mark.parametrize("key", [
+    pytest.param('[c for c in s.columns if c != "n"]', id="a comprehension over the names"),
+    pytest.param("s.columns[:1]", id="a slice of the names"),
+    pytest.param('["n", "loss"]', id="a list written out"),
+])
+def test_columns_chosen_by_a_list_built_from_the_names(key: str) -> None:
+    # pandas keeps the keys in the index; the list had been taken for one column name
+    differential(GROUPED + 's = df.groupby("kiln")[["loss", "n"]].mean()\n'
+                 f"result = s[{key}]\nplain = df[{key.replace('s.columns', 'df.columns')}]\n",
+                 "result", "plain")
+
+
+def test_columns_of_a_grouped_frame_chosen_by_a_list_in_a_name() -> None:
+    differential(GROUPED + 's = df.groupby("kiln")[["loss", "n"]].mean()\ncols = ["n"]\n'
+                 "result = s[cols]\n")

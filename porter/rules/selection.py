@@ -38,8 +38,33 @@ def column_by_key(frame: Frame, key: Value, ctx: RuleContext) -> Column:
 
 @rule("frame.getitem.column")
 def getitem_column(call: PandasCall, ctx: RuleContext) -> Value:
-    """df["a"] -> pl.col("a") inside the frame's expressions."""
-    return column_by_key(frame_of(call), call.args[0], ctx)
+    """df["a"] -> pl.col("a") inside the frame's expressions; df[[c for c in ...]] (a list
+    built when the script runs) -> .select(...), keeping the columns pandas holds in the index."""
+    frame = frame_of(call)
+    key = call.args[0]
+    if isinstance(key, Opaque) and not key.is_const and _is_list_display(key.code.text):
+        ctx.lower(f"`{key.code.text}` is taken to hold column names", 0.9)
+        code = frame.code.method("select", *frame.index, emit.col(key.code))
+        return derive(frame, code, same_rows=True, columns=None, dtypes=frame.dtypes,
+                      column_pairs=())
+    return column_by_key(frame, key, ctx)
+
+
+def _is_list_display(text: str) -> bool:
+    """`[...]` or `[... for ...]` written out, or a slice of the column names (df.columns[1:]):
+    a list, never one column name."""
+    try:
+        node = cst.parse_expression(text)
+    except cst.ParserSyntaxError:
+        return False
+    if isinstance(node, cst.Subscript) and len(node.slice) == 1 \
+            and isinstance(node.slice[0].slice, cst.Slice):
+        names = node.value
+        return isinstance(names, cst.Call) and isinstance(names.func, cst.Attribute) \
+            and names.func.attr.value == "names" and isinstance(names.func.value, cst.Call) \
+            and isinstance(names.func.value.func, cst.Attribute) \
+            and names.func.value.func.attr.value == "collect_schema"
+    return isinstance(node, (cst.List, cst.ListComp))
 
 
 @rule("frame.getattr")
@@ -60,7 +85,11 @@ def getitem_columns(call: PandasCall, ctx: RuleContext) -> Value:
     if not all(isinstance(n, str) for n in names):
         raise Unsupported("columns selected by something other than names")
     args: list[object] = [key.code] if not _is_literal(key) else list(names)
-    return select_columns(frame, frame.code.method("select", *args), names)
+    # the columns pandas keeps in the index (a groupby's keys) stay with the rows
+    keys = [k for k in frame.index if k not in names]
+    if keys and not _is_literal(key):
+        args = [emit.col(key.code)]  # beside other names, a list is one literal value to select
+    return select_columns(frame, frame.code.method("select", *keys, *args), [*keys, *names])
 
 
 def _is_literal(value: Value) -> bool:
