@@ -6,6 +6,14 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 meals = pl.scan_csv("meals.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
 meals = meals.rename({"Class": "class_group", "Dish": "dish"}, strict=False)
 meals = meals.drop("notes")
@@ -15,6 +23,9 @@ meals = meals.sort(["class_group", "dish"], nulls_last=True, maintain_order=True
 meals = meals
 (
     meals
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("meals_clean.csv")
 )

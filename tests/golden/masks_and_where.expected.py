@@ -6,6 +6,14 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 hives = pl.scan_csv("hives.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
 # a hive is strong when it is heavy and calm
 strong = (
@@ -13,7 +21,9 @@ strong = (
     .fill_null(False)
 )
 hives = hives.with_columns(
-    label=pl.when(strong).then(pl.lit("strong")).otherwise(pl.lit("watch")),
+    label=pl.when(strong.fill_null(True))
+    .then(pl.lit("strong"))
+    .otherwise(pl.lit("watch")),
 )
 hives = hives.with_columns(
     label=pl.when(pl.col("weight_kg").is_null())
@@ -23,6 +33,9 @@ hives = hives.with_columns(
 watch = hives.filter(pl.col("label").ne_missing(pl.lit("strong")))
 (
     watch
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("watch_list.csv")
 )

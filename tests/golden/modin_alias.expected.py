@@ -7,6 +7,14 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 trays = (
     pl.scan_csv("trays.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
     .select(pl.col("^(tray|species|sown|sprouted)$"))
@@ -15,6 +23,9 @@ trays = trays.with_columns(rate=(pl.col("sprouted") / pl.col("sown")).fill_nan(N
 best = trays.sort("rate", descending=True, nulls_last=True, maintain_order=True).head(3)
 (
     best
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("best_trays.csv")
 )

@@ -16,6 +16,14 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 visits = pl.scan_csv(
     "visits.csv",
     null_values=PANDAS_NA_VALUES,
@@ -25,7 +33,7 @@ visits = visits.with_columns(name=pl.col("name").str.strip_chars().str.to_titlec
 visits = visits.with_columns(
     day=pl.col("day").str.to_datetime("%Y-%m-%d", strict=False),
 )
-visits = visits.with_columns(weekday=pl.col("day").dt.weekday() - 1)
+visits = visits.with_columns(weekday=pl.col("day").dt.weekday().cast(pl.Int32) - 1)
 long_names = visits.filter(pl.col("name").str.len_chars().cast(pl.Int64) > 10)
 weekend = visits.filter(pl.col("weekday") >= 5)
 (
@@ -33,6 +41,7 @@ weekend = visits.filter(pl.col("weekday") >= 5)
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("weekend_visits.csv")
 )

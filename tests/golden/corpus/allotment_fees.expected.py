@@ -22,6 +22,14 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 RATE_PER_M2 = 0.45
 TAP_SURCHARGE = {"Y": 15.0, "N": 0.0}
 
@@ -110,6 +118,7 @@ def main():
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_INTS,
         )
         .sink_csv("ledger.csv")
     )
@@ -161,6 +170,7 @@ def main():
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_INTS,
         )
         .sink_csv("section_balances.csv")
     )
@@ -185,6 +195,7 @@ def main():
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_INTS,
         )
         .sink_csv("in_arrears.csv")
     )

@@ -21,6 +21,14 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 sales = (
     pl.scan_csv(
         "data/sales.csv",
@@ -35,7 +43,7 @@ sales = (
     sales
     .with_columns(
         revenue=(pl.col("units") * pl.col("unit_price")).round(2),
-        day=pl.col("sale_date").dt.day(),
+        day=pl.col("sale_date").dt.day().cast(pl.Int32),
         waste_units=pl.col("waste_units").fill_null(0),
     )
     .collect()
@@ -65,6 +73,7 @@ shop_stats = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("shop_stats.csv")
 )
@@ -144,6 +153,7 @@ pl.collect_all([
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_INTS,
         )
         .sink_csv("typical_units.csv", lazy=True)
     ),
@@ -152,6 +162,7 @@ pl.collect_all([
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_INTS,
         )
         .sink_csv("first_and_last.csv", lazy=True)
     ),
@@ -174,6 +185,7 @@ least_waste = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("least_waste.csv")
 )

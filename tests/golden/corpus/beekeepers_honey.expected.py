@@ -22,6 +22,14 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 APIARIES = pl.LazyFrame(
     {
         "apiary": ["combe aux abeilles", "pré haut", "rucher du moulin"],
@@ -92,6 +100,7 @@ def main():
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_INTS,
         )
         .sink_csv("hive_totals.csv")
     )
@@ -125,6 +134,7 @@ def main():
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_INTS,
         )
         .sink_csv("apiary_totals.csv")
     )
@@ -153,6 +163,7 @@ def main():
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_INTS,
         )
         .sink_csv("honey_describe.csv")
     )

@@ -23,6 +23,14 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 PASSAGE_FORMAT = "%Y-%m-%d %H:%M"
 
 
@@ -101,7 +109,7 @@ def main():
     )
 
     priced = price(passages, tariffs)
-    priced = priced.with_columns(month=pl.col("passed_at").dt.month())
+    priced = priced.with_columns(month=pl.col("passed_at").dt.month().cast(pl.Int32))
     priced = (
         priced
         .with_columns(
@@ -144,6 +152,7 @@ def main():
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_INTS,
         )
         .sink_csv("toll_by_lock.csv")
     )
@@ -208,6 +217,7 @@ def main():
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_INTS,
         )
         .sink_csv("owed_by_skipper.csv")
     )

@@ -22,6 +22,14 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 wheels = (
     pl.scan_csv(
         "data/wheels.csv",
@@ -50,7 +58,7 @@ wheels = wheels.with_columns(
     .round(2),
 )
 wheels = wheels.with_columns(loss_pct=pl.col("loss_pct").clip(0, None))
-wheels = wheels.with_columns(made_month=pl.col("made_on").dt.month())
+wheels = wheels.with_columns(made_month=pl.col("made_on").dt.month().cast(pl.Int32))
 wheels = wheels.with_columns(
     status=pl.when((pl.col("loss_pct") >= 8) & (pl.col("rind_score") >= 4))
     .then(pl.lit("ready"))
@@ -76,6 +84,7 @@ status = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("wheel_status.csv")
 )
@@ -126,6 +135,7 @@ caves = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("cave_spread.csv")
 )
@@ -141,7 +151,7 @@ by_recipe = (
     .sort("recipe")
 )
 by_recipe = by_recipe.with_columns(mean_loss=pl.col("mean_loss").round(2))
-by_recipe.sink_csv("recipe_loss.csv")
+by_recipe.with_columns(PANDAS_CSV_INTS).sink_csv("recipe_loss.csv")
 print(
     wheels.select(pl.col("status"))
     .drop_nulls()

@@ -12,6 +12,14 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 DYE_COSTS = pl.LazyFrame(
     {
         "dye": ["indigo", "madder", "weld", "walnut", "cochineal"],
@@ -94,15 +102,23 @@ water = water.with_columns(
 )
 (
     water
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("water_per_dye.csv")
 )
 
-flagged = batches.filter(pl.col("rejected") | pl.col("rush"))
+flagged = batches.filter(
+    pl.when(pl.col("rejected").is_not_null()).then(pl.col("rejected") | pl.col("rush")),
+)
 (
     flagged
     .select("batch_code", "dye", "shift", "wool", "status", "note_length")
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("flagged_batches.csv")
 )
 
@@ -112,14 +128,14 @@ per_shift = (
     .group_by("shift")
     .agg(
         pl.col("batch_code").count().cast(pl.Int64).alias("batches"),
-        pl.col("rejected").sum().alias("rejected"),
-        pl.col("wool").sum().alias("wool"),
+        pl.col("rejected").sum().cast(pl.Int64).alias("rejected"),
+        pl.col("wool").sum().cast(pl.Int64).alias("wool"),
     )
     .sort("shift")
     .collect()
     .lazy()
 )
-per_shift.sink_csv("shift_report.csv")
+per_shift.with_columns(PANDAS_CSV_INTS).sink_csv("shift_report.csv")
 print(per_shift.collect())
 
 intensity = (

@@ -21,6 +21,14 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 VEHICLE_FEE = {"yes": 12.5, "no": 0.0}
 
 tickets = pl.scan_csv(
@@ -62,7 +70,9 @@ tickets = tickets.with_columns(
 tickets = tickets.with_columns(
     sail_date=pl.col("sail_date").str.to_datetime("%Y-%m-%d"),
 )
-tickets = tickets.with_columns(weekday=pl.col("sail_date").dt.weekday() - 1)
+tickets = tickets.with_columns(
+    weekday=pl.col("sail_date").dt.weekday().cast(pl.Int32) - 1,
+)
 
 tickets = tickets.sort(["sail_date", "ticket_no"], nulls_last=True, maintain_order=True)
 tickets = tickets.collect().lazy()
@@ -112,6 +122,7 @@ class_counts = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("fare_classes.csv")
 )
@@ -123,6 +134,7 @@ weekend = tickets.filter(pl.col("weekday") >= 5).collect().lazy()
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("weekend_sailings.csv")
 )

@@ -12,6 +12,14 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 SPELLINGS = {"anchovie": "anchovy", "sardines": "sardine"}
 
 
@@ -117,7 +125,10 @@ print(
 status = quota_status(landings, quota).collect().lazy()
 (
     status
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("quota_status.csv")
 )
 print(status.filter(pl.col("over_quota")).collect())
@@ -125,7 +136,10 @@ print(status.filter(pl.col("over_quota")).collect())
 totals = boat_totals(landings).collect().lazy()
 (
     totals
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("boat_totals.csv")
 )
 print(totals.select(pl.col("catch_kg").sum()).collect().item())

@@ -23,6 +23,14 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 JUMP_CM = 20.0
 
 
@@ -100,6 +108,7 @@ def main():
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_INTS,
         )
         .sink_csv("suspicious_readings.csv")
     )
@@ -153,6 +162,7 @@ def main():
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_INTS,
         )
         .sink_csv("stake_melt.csv")
     )
@@ -178,7 +188,7 @@ def main():
     print(
         suspicious.select(pl.len()).collect().item(),
         "suspicious readings;",
-        readings.select(pl.col("exposed_cm").is_null().sum()).collect().item(),
+        readings.select(pl.col("exposed_cm").is_null().sum().cast(pl.Int64)).collect().to_series().to_numpy()[0],
         "missing",
     )
 

@@ -22,6 +22,14 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 SENSORS = ["temp_c", "humidity_pct", "soil_moisture", "co2_ppm"]
 HOT_LIMIT = {"tropical": 30, "arid": 34, "fern gully": 24}
 
@@ -50,6 +58,7 @@ gaps = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("sensor_gaps.csv")
 )
@@ -92,6 +101,7 @@ hot = daily.filter(pl.col("too_hot")).drop("hot_limit")
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("hot_days.csv")
 )

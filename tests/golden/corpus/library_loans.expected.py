@@ -21,6 +21,14 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 
 def load_loans(path):
     loans = pl.scan_csv(path, null_values=PANDAS_NA_VALUES, infer_schema_length=None)
@@ -40,7 +48,7 @@ def flag_loans(loans):
         late=(pl.col("returned_on") > pl.col("due_on")).fill_null(False),
     )
     loans = loans.with_columns(year=pl.col("borrowed_on").dt.year())
-    loans = loans.with_columns(month=pl.col("borrowed_on").dt.month())
+    loans = loans.with_columns(month=pl.col("borrowed_on").dt.month().cast(pl.Int32))
     loans = loans.with_columns(branch=pl.col("branch").str.to_lowercase())
     return loans
 
@@ -110,6 +118,7 @@ def main():
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_INTS,
         )
         .sink_csv("member_lateness.csv")
     )
@@ -122,7 +131,7 @@ def main():
         .agg(pl.len().cast(pl.Int64).alias("size"))
         .sort(["branch", "year", "month"])
     )
-    per_branch.sink_csv("branch_month_loans.csv")
+    per_branch.with_columns(PANDAS_CSV_INTS).sink_csv("branch_month_loans.csv")
 
     unknown_members = (
         loans
@@ -138,6 +147,7 @@ def main():
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_INTS,
         )
         .sink_csv("unknown_members.csv")
     )

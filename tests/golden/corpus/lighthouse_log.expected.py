@@ -13,6 +13,14 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 WATCHES = {'dusk': 1, 'midnight': 2, 'dawn': 3}
 FOG_NM = 2   # below two nautical miles the horn goes on
 
@@ -72,7 +80,7 @@ per_station = (
         pl.col("log_id").count().cast(pl.Int64).alias("watches"),
         pl.col("oil_est").max().alias("high"),
         pl.col("oil_est").min().alias("low"),
-        pl.col("estimated").sum().alias("estimated"),
+        pl.col("estimated").sum().cast(pl.Int64).alias("estimated"),
         pl.col("wind_bft").mean().alias("mean_wind"),
     )
     .sort("station")
@@ -106,7 +114,10 @@ per_station = (
 )
 (
     per_station
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("station_oil.csv")
 )
 
@@ -132,7 +143,10 @@ foggy = (
 )
 (
     foggy
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("data/foggy_watches.csv")
 )
 
@@ -154,7 +168,9 @@ by_keeper = by_keeper.sort(
 print(by_keeper.head(8).collect())
 print(
     "estimated dips:",
-    int(log.select(pl.col("estimated").sum()).collect().item()),
+    int(
+        log.select(pl.col("estimated").sum().cast(pl.Int64)).collect().to_series().to_numpy()[0],
+    ),
     "of",
     log.select(pl.len()).collect().item(),
 )

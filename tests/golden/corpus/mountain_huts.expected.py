@@ -22,6 +22,14 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 stays = (
     pl.scan_parquet("data/stays.parquet")
     .with_columns(pl.col(pl.Float32, pl.Float64).fill_nan(None))
@@ -37,7 +45,7 @@ stays = (
     stays
     .with_columns(
         year=pl.col("arrival").dt.year(),
-        month=pl.col("arrival").dt.month(),
+        month=pl.col("arrival").dt.month().cast(pl.Int32),
         guest_nights=pl.col("guests") * pl.col("nights"),
     )
     .collect()
@@ -95,6 +103,7 @@ grid = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("hut_month_grid.csv")
 )
@@ -120,6 +129,7 @@ unpaid = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("unpaid_half_board.csv")
 )

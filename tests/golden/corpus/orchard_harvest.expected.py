@@ -21,6 +21,14 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 GRADE_PRICES = pl.LazyFrame(
     {"grade": ["A", "B", "C"], "price_per_kg": [1.35, 0.9, 0.4]},
 )
@@ -45,7 +53,7 @@ clean = (
     .with_columns(
         variety=pl.col("variety").str.strip_chars().str.to_lowercase(),
         grade=pl.col("grade").str.strip_chars().str.to_uppercase(),
-        month=pl.col("pick_date").dt.month(),
+        month=pl.col("pick_date").dt.month().cast(pl.Int32),
     )
     .drop_nulls(["kg", "grade"])
     .collect()
@@ -92,6 +100,7 @@ premium = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("premium_by_grower.csv")
 )
@@ -127,6 +136,7 @@ monthly = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("monthly_revenue.csv")
 )

@@ -22,6 +22,14 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 sales = pl.scan_csv(
     "data/sales.csv",
     null_values=PANDAS_NA_VALUES + ["comp", "?"],
@@ -113,6 +121,7 @@ per_show = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("show_report.csv")
 )
@@ -127,6 +136,7 @@ busy = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("data/busy_shows.csv")
 )
@@ -171,10 +181,11 @@ till = till.with_columns(takings=pl.col("takings").round(2))
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("till_mix.csv")
 )
 print(
     "comps given:",
-    sales.select((pl.col("price_each") == 0).fill_null(False).sum()).collect().item(),
+    sales.select((pl.col("price_each") == 0).fill_null(False).sum().cast(pl.Int64)).collect().to_series().to_numpy()[0],
 )

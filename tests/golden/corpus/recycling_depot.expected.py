@@ -12,6 +12,14 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 CREDITS = pl.LazyFrame(
     {
         "material": ["glass", "paper", "metal", "textiles", "e-waste"],
@@ -88,7 +96,7 @@ per_material = (
         maintain_order=True,
     )
 )
-per_material.sink_csv("material_totals.csv")
+per_material.with_columns(PANDAS_CSV_INTS).sink_csv("material_totals.csv")
 
 heavy = drops.filter(
     pl.col("weight_kg").is_between(20, 60) & pl.col("material").is_in(["glass", "metal"]),
@@ -115,7 +123,10 @@ heavy_households = (
 )
 (
     heavy_households
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("heavy_households.csv")
 )
 print(heavy_households.head(5).collect())
@@ -150,10 +161,13 @@ first_visit = (
 )
 (
     first_visit
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("household_first_visit.csv")
 )
 print(
     first_visit.tail(3).collect(),
-    drops.select(pl.col("weight_kg").sum()).collect().item(),
+    drops.select(pl.col("weight_kg").sum()).cast({pl.selectors.integer(): pl.Int64}).collect().to_series().to_numpy()[0],
 )

@@ -12,6 +12,14 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 MEAL_PRICE = {"standard": 3.40, "reduced": 1.10}
 
 meals = pl.scan_csv(
@@ -47,9 +55,7 @@ absent = meals.filter(~(pl.col("portions") > 0).fill_null(False))
 print(
     served.select(pl.len()).collect().item(),
     absent.select(pl.len()).collect().item(),
-    served.select(pl.col("pupil_id").drop_nulls().n_unique().cast(pl.Int64))
-    .collect()
-    .item(),
+    served.select(pl.col("pupil_id").drop_nulls().n_unique().cast(pl.Int64)).collect().to_series().to_numpy()[0],
 )
 
 per_class = (
@@ -59,7 +65,7 @@ per_class = (
     .agg(
         pl.col("pupil_id").drop_nulls().n_unique().cast(pl.Int64).alias("pupils"),
         pl.col("portions").sum().alias("portions"),
-        pl.col("second_helping").sum().alias("seconds"),
+        pl.col("second_helping").sum().cast(pl.Int64).alias("seconds"),
         pl.col("cost").sum().alias("cost"),
     )
     .sort("class_group")
@@ -67,7 +73,10 @@ per_class = (
 per_class = per_class.with_columns(cost=pl.col("cost").round(2))
 (
     per_class
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("class_costs.csv")
 )
 
@@ -81,7 +90,10 @@ menu_mix = (
 menu_mix = menu_mix.rename({"pupil_id": "meals"})
 (
     menu_mix
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("menu_mix.csv")
 )
 
@@ -115,7 +127,10 @@ alerts = (
 )
 (
     alerts
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("allergen_alerts.csv")
 )
 print(alerts.head(5).collect())

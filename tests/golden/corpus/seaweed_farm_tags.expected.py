@@ -22,6 +22,14 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 TAG_PATTERN = r"^\s*[Ll](\d+)-([A-Ca-c])(?:/[Ww](\d+))?\s*$"
 
 tags = (
@@ -52,7 +60,12 @@ parts = (
 )
 tags = tags.with_columns(line=pl.lit("L") + parts.struct.field("1").str.zfill(2))
 tags = tags.with_columns(bay=parts.struct.field("2").str.to_uppercase())
-tags = tags.with_columns(week=parts.struct.field("3").cast(pl.Float64)).collect().lazy()
+tags = (
+    tags
+    .with_columns(week=parts.struct.field("3").str.strip_chars().cast(pl.Float64))
+    .collect()
+    .lazy()
+)
 
 unread = tags.filter(pl.col("line").is_null())
 tags = tags.filter(pl.col("line").is_not_null())
@@ -101,6 +114,7 @@ per_line = per_line.with_columns(dry_kg=pl.col("dry_kg").round(2))
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("line_yield.csv")
 )
@@ -124,6 +138,7 @@ weekly = weekly.sort(["species", "week"], nulls_last=True, maintain_order=True)
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("species_weeks.csv")
 )
@@ -140,6 +155,7 @@ unread = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
     )
     .sink_csv("data/unread_tags.csv")
 )

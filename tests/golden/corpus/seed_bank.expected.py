@@ -11,6 +11,14 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 TEST_COLUMNS = ["test_id", "accession", "species", "sown", "germinated", "test_date"]
 
 
@@ -88,7 +96,10 @@ print(
 
 (
     species_summary(rated)
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("species_rates.csv")
 )
 
@@ -102,7 +113,10 @@ top = (
 )
 (
     top
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("top_accessions.csv")
 )
 print(top.collect())
@@ -117,11 +131,12 @@ weak = (
 )
 (
     weak
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("weak_cold_room.csv")
 )
 print(
-    weak.select(pl.col("accession").drop_nulls().n_unique().cast(pl.Int64))
-    .collect()
-    .item(),
+    weak.select(pl.col("accession").drop_nulls().n_unique().cast(pl.Int64)).collect().to_series().to_numpy()[0],
 )

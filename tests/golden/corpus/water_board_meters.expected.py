@@ -12,6 +12,14 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
 TARIFF_RATES = {"domestic": 1.10, "farm": 0.75, "holiday": 1.60}
 STANDING_CHARGE = 8.0
 col = "usage_m3"
@@ -64,7 +72,10 @@ bills = df.select(
 )
 (
     bills
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("bills.csv")
 )
 
@@ -89,7 +100,10 @@ leaks = (
 )
 (
     leaks
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("suspected_leaks.csv")
 )
 print(leaks.tail(3).collect())
@@ -109,6 +123,9 @@ village = (
 village = village.with_columns(billed=pl.col("billed").round(2))
 (
     village
-    .with_columns(pl.selectors.boolean().replace_strict({True: "True", False: "False"}))
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
     .sink_csv("village_usage.csv")
 )
