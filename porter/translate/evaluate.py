@@ -789,12 +789,13 @@ _ALIGNING = frozenset({
 })
 
 
-# pandas calls that read their receiver's row labels (they give or use them as values)
+# pandas calls that read their receiver's row labels (they give or use them as values); a
+# loop over rows (iterrows) is left out: its labels are read with the same frame's, which agree
 _LABEL_READERS = frozenset({
     "frame.reset_index", "series.reset_index", "frame.idxmax", "frame.idxmin",
     "series.idxmax", "series.idxmin", "frame.sort_index", "series.sort_index", "frame.loc",
     "series.loc", "frame.at", "series.at", "frame.to_csv", "series.to_csv", "frame.to_excel",
-    "frame.iterrows", "frame.itertuples", "series.items", "frame.to_dict", "series.to_dict",
+    "frame.to_dict", "series.to_dict",
     "frame.reindex", "series.reindex", "frame.index", "series.index", "frame.first_valid_index",
     "series.first_valid_index", "frame.last_valid_index", "series.last_valid_index",
 })
