@@ -365,6 +365,12 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
                        "encoding", positional=1)
     target = _write_target(call, ctx, "csv")
     frame = _as_frame(call)
+    if frame.column_pairs and call.const("header", None, True) is not False:
+        # agg({"v": ["sum", "mean"]}): pandas' columns have two levels, written as a header of
+        # one line per level (and one for the index name); porter's are flat names
+        raise ctx.todo("the columns have two levels in pandas (an aggregation with a list per "
+                       "column), written as a header of several lines; porter's names are "
+                       "flat: name them (df.columns = [...]) before writing")
     columns = call.const("columns", None, None)
     if columns is not None:
         frame = select_columns(frame, frame.code.method("select", *frame.index, *columns),
