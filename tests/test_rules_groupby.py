@@ -584,3 +584,18 @@ last = df["d"].max()
 """)
     site = next(s for s in result.sites if s.key == "series.max")
     assert site.confidence <= 0.9 and "Timestamp" in site.message
+
+
+def test_sums_of_a_true_false_column_of_unknown_type_do_not_wrap(tmp_path, monkeypatch) -> None:
+    # read from a file without --data: porter does not know "ok" holds True/False, whose sum is
+    # UInt32 in Polars (1 - 3 wrapped to 4294967294); pandas counts them as int64
+    (tmp_path / "flags.csv").write_text("k,ok,n\na,True,1\na,False,2\nb,True,3\n", encoding="utf-8")
+    monkeypatch.chdir(tmp_path)
+    differential('''
+import pandas as pd
+df = pd.read_csv("flags.csv")
+g = df.groupby("k")["ok"].sum().reset_index()
+g["short"] = g["ok"] - 3
+result = df.groupby("k").sum().reset_index()
+result["less"] = result["ok"] - 3
+''', "g", "result")

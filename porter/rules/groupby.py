@@ -136,6 +136,13 @@ def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleCo
 
     `dtypes` are the aggregates' types where known (agg_dtype); the keys keep theirs."""
     code = grouping_code(grouped).method("agg", *exprs)
+    kinds = dtypes or [None] * max(len(names), 1)
+    if any(".sum()" in e.text and ".sum().cast(" not in e.text for e in exprs) \
+            and any(t is None for t in kinds):
+        # a sum of a column of unknown type may be a sum of True/False: UInt32 in Polars, which
+        # wraps around below 0 in later arithmetic (pandas counts them as int64)
+        code = code.method("with_columns",
+                           emit.atom("pl.selectors.unsigned_integer()").method("cast", emit.atom("pl.Int64")))
     keys = list(grouped.keys)
     if grouped.sort:
         # keys are unique after grouping, so the sort is total; a kept null key sorts last

@@ -31,6 +31,7 @@ def per_route(tickets):
             pl.col("fare").sum().alias("revenue"),
             pl.col("ticket").count().cast(pl.Int64).alias("trips"),
         )
+        .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
         .sort("route")
     )
     return summary

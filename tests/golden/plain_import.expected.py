@@ -17,6 +17,7 @@ by_boat = (
     .drop_nulls("boat")
     .group_by("boat")
     .agg(pl.col("kg").sum())
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("boat")
 )
 print(by_boat.collect())

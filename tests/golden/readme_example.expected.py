@@ -28,6 +28,7 @@ totals = (
     .drop_nulls("orchard")
     .group_by("orchard")
     .agg(pl.col("kg").sum())
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("orchard")
 )
 (

@@ -84,6 +84,7 @@ def main():
             pl.col("amount").sum().alias("paid"),
             pl.col("amount").count().cast(pl.Int64).alias("payments"),
         )
+        .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
         .sort("plot")
     )
     ledger = (
@@ -163,6 +164,7 @@ def main():
             pl.col("paid").sum().alias("paid"),
             pl.col("balance").sum().alias("balance"),
         )
+        .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
         .sort("section")
     )
     (

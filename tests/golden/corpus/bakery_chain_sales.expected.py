@@ -63,6 +63,7 @@ shop_stats = (
         pl.col("unit_price").max().alias("dearest"),
         pl.col("product").count().cast(pl.Int64).alias("lines"),
     )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("shop")
     .with_columns(pl.selectors.float().round(2))
     .collect()

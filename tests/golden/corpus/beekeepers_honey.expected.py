@@ -93,6 +93,7 @@ def main():
             pl.col("harvest_date").count().cast(pl.Int64).alias("harvests"),
             pl.col("moisture_pct").max().alias("wettest"),
         )
+        .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
         .sort(["hive_id", "season"])
     )
     (
@@ -114,6 +115,7 @@ def main():
             pl.col("moisture_pct").mean().alias("moisture_pct"),
             pl.col("hive_id").drop_nulls().n_unique().cast(pl.Int64).alias("hive_id"),
         )
+        .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
         .sort("apiary")
     )
     per_apiary = per_apiary.join(

@@ -128,6 +128,7 @@ def main():
             pl.col("toll").sum().alias("tolls"),
             pl.col("cargo_t").sum().alias("cargo"),
         )
+        .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
         .sort(["lock_id", "month"])
         .rename(
             lambda c, other=locks.collect_schema().names(): c + "_x" if c in other and c not in ("lock_id",) else c,
@@ -203,6 +204,7 @@ def main():
         .drop_nulls("skipper")
         .group_by("skipper")
         .agg(pl.col("toll").sum())
+        .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
         .sort("skipper")
     )
     owed = owed.sort(

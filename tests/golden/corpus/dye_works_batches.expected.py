@@ -88,6 +88,7 @@ water = (
         pl.col("liters_used").sum().alias("sum"),
         pl.col("liters_used").mean().alias("mean"),
     )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("dye")
 )
 water = water.join(

@@ -87,6 +87,7 @@ per_route = (
         pl.col("revenue").sum().alias("revenue"),
         pl.col("fare").mean().alias("fare"),
     )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("route_code")
 )
 per_route = (

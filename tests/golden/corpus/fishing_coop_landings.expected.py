@@ -46,6 +46,7 @@ def quota_status(landings, quota):
             pl.col("catch_kg").sum().alias("landed_kg"),
             pl.col("port").last(ignore_nulls=True).alias("port"),
         )
+        .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
         .sort(["boat", "species"])
     )
     status = (
@@ -91,6 +92,7 @@ def boat_totals(landings):
             pl.col("ice_boxes").sum().alias("ice_boxes"),
             pl.col("price_per_kg").max().alias("best_price"),
         )
+        .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
         .sort("boat")
     )
     return totals.with_columns(pl.selectors.float().round(2))

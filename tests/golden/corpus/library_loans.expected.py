@@ -100,6 +100,7 @@ def main():
             pl.col("still_out").sum().alias("still_out"),
             pl.col("returned_on").max().alias("last_return"),
         )
+        .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
         .sort(["member_no", "full_name", "member_type"])
     )
     by_member = (

@@ -60,6 +60,7 @@ per_hut = (
         pl.col("guest_nights").sum().alias("sum"),
         pl.col("guest_nights").mean().alias("mean"),
     )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("hut")
     .rename({"sum": "guest_nights", "mean": "avg_per_stay"})
     .rename(

@@ -70,6 +70,7 @@ premium = (
         pl.col("crate_count").sum().alias("crates"),
         pl.col("weigh_id").count().cast(pl.Int64).alias("weighings"),
     )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort(["grower_code", "variety"])
     .rename(
         lambda c, other=growers.collect_schema().names(): c + "_x" if c in other and c not in ("grower_code",) else c,
@@ -126,6 +127,7 @@ monthly = (
         pl.col("revenue").sum().alias("revenue"),
         pl.col("grower_code").drop_nulls().n_unique().cast(pl.Int64).alias("growers"),
     )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort(["month", "grade"])
     .with_columns(pl.selectors.float().round(2))
     .collect()

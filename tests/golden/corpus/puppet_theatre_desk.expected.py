@@ -150,6 +150,7 @@ per_title = (
         pl.col("tickets").sum().alias("tickets"),
         pl.col("takings").sum().alias("takings"),
     )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("title", nulls_last=True)
 )
 per_title = per_title.sort(
@@ -166,6 +167,7 @@ till = (
     .drop_nulls(["payment", "seat_zone"])
     .group_by(["payment", "seat_zone"])
     .agg(pl.col("takings").sum())
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort(["payment", "seat_zone"])
 )
 till = till.filter(pl.col("takings") > 0)

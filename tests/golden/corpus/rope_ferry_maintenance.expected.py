@@ -109,6 +109,7 @@ parts_per_job = (
     .drop_nulls("job_id")
     .group_by("job_id")
     .agg(pl.col("unit_cost").sum())
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("job_id")
     .rename({"unit_cost": "parts_cost"})
 )
@@ -140,6 +141,7 @@ per_ferry = (
         pl.col("parts_cost").sum().alias("parts"),
         pl.col("parts_per_hour").max().alias("worst_ratio"),
     )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("ferry")
 )
 per_ferry = per_ferry.with_columns(total=pl.col("labour") + pl.col("parts"))
@@ -171,6 +173,7 @@ usage = (
         pl.col("job_id").count().cast(pl.Int64).alias("fitted"),
         pl.col("unit_cost").sum().alias("spent"),
     )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort(["part", "supplier"], nulls_last=True)
 )
 usage = usage.sort(
@@ -211,6 +214,7 @@ print(
     deferred.drop_nulls("ferry")
     .group_by("ferry")
     .agg(pl.col("unit_cost").sum())
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("ferry")
     .select(pl.col("ferry"), pl.col("unit_cost").round(2).alias("unit_cost"))
     .collect(),

@@ -68,6 +68,7 @@ per_class = (
         pl.col("second_helping").sum().cast(pl.Int64).alias("seconds"),
         pl.col("cost").sum().alias("cost"),
     )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("class_group")
 )
 per_class = per_class.with_columns(cost=pl.col("cost").round(2))

@@ -89,6 +89,7 @@ per_line = (
         pl.col("dry_kg").sum().alias("dry_kg"),
         pl.col("bay").drop_nulls().n_unique().cast(pl.Int64).alias("bays"),
     )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("line")
     .rename(
         lambda c, other=lines.collect_schema().names(): c + "_x" if c in other and c not in ("line",) else c,
@@ -129,6 +130,7 @@ weekly = (
         pl.col("wet_kg").sum().alias("wet_kg"),
         pl.col("dry_ratio").mean().alias("mean_ratio"),
     )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort(["species", "week"])
 )
 weekly = weekly.with_columns(mean_ratio=pl.col("mean_ratio").round(4))
@@ -164,6 +166,7 @@ print(
     tags.drop_nulls("harvester")
     .group_by("harvester")
     .agg(pl.col("wet_kg").sum())
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("harvester")
     .sort(pl.col("wet_kg"), descending=True, nulls_last=True, maintain_order=True)
     .collect(),

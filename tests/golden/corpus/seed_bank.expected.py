@@ -71,6 +71,7 @@ def species_summary(tests):
             pl.col("sown").sum().alias("sown"),
             pl.col("germinated").sum().alias("germinated"),
         )
+        .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
         .sort("species")
     )
     summary = summary.with_columns(rate=pl.col("rate").round(3))

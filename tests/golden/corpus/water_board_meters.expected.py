@@ -118,6 +118,7 @@ village = (
         pl.col("bill").sum().alias("billed"),
         pl.col("usage_m3").median().alias("median_m3"),
     )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("village")
 )
 village = village.with_columns(billed=pl.col("billed").round(2))
