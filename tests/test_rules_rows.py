@@ -266,3 +266,59 @@ df["d"] = pd.to_datetime(df["t"])
 def test_between_dates_written_as_text(bounds: str) -> None:
     # pandas reads the text as dates; Polars had refused to compare datetimes with text
     differential(DATED + f'result = df[df["d"].between({bounds})]\n')
+
+
+# -- series.rank --------------------------------------------------------------------------------
+
+RANK_FRAME = """\
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({
+    "k": ["b", "a", None, "b", "a", np.nan, "Éclair", "é", "z"],
+    "v": [3.0, 1.0, np.nan, 3.0, None, 2.0, 1.0, 7.0, 3.0],
+    "n": [1, 2, 3, 4, 5, 6, 7, 1, 9],
+    "ok": [True, False, True, True, False, True, False, True, True],
+})
+"""
+
+RANKS = [
+    pytest.param('df["v"].rank()', id="average with ties NaN and None"),
+    pytest.param('df["v"].rank(pct=True)', id="average pct"),
+    pytest.param('df["v"].rank(method="min", ascending=False)', id="min descending"),
+    pytest.param('df["v"].rank(method="max", pct=True)', id="max pct"),
+    pytest.param('df["v"].rank(method="first")', id="first numbers ties in order"),
+    pytest.param('df["v"].rank(method="first", ascending=False)', id="first descending"),
+    pytest.param('df["v"].rank(method="dense", pct=True)', id="dense pct over the highest rank"),
+    pytest.param('df["n"].rank(method="dense", ascending=False, pct=True)', id="int dense descending pct"),
+    pytest.param('df["n"].rank(pct=True)', id="int average pct"),
+    pytest.param('df["k"].rank(method="min")', id="text with unicode and missing"),
+    pytest.param('df["ok"].rank()', id="booleans"),
+]
+
+
+@pytest.mark.parametrize("expr", RANKS)
+def test_series_rank_matches_pandas(expr: str) -> None:
+    differential(RANK_FRAME + f"df['r'] = {expr}\nresult = df\n")
+
+
+@pytest.mark.parametrize("mask", [
+    pytest.param('df["n"] > 3', id="a filtered frame"),
+    pytest.param('df["n"] > 100', id="an empty frame"),
+])
+def test_series_rank_of_a_filtered_frame_matches_pandas(mask: str) -> None:
+    differential(RANK_FRAME + f"d = df[{mask}].copy()\n"
+                 "d['r'] = d['v'].rank(pct=True)\nd['m'] = d['k'].rank(method='dense', ascending=False)\n"
+                 "result = d\n")
+
+
+def test_series_rank_ports() -> None:
+    check_ports(RANK_FRAME + 'df["r"] = df["v"].rank(method="min", ascending=False, pct=True)\n',
+                'pandas_div(pl.col("v").rank("min", descending=True).cast(pl.Float64), pl.col("v").count())')
+
+
+@pytest.mark.parametrize("before", [
+    pytest.param('df["r"] = df["v"].rank(na_option="bottom")', id="na_option bottom"),
+    pytest.param('df["r"] = df["k"].astype("category").rank()', id="categories"),
+])
+def test_series_rank_todo(before: str) -> None:
+    check_todo(RANK_FRAME + before + "\n", "series.rank")

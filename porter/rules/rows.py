@@ -390,3 +390,45 @@ def frame_replace(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower("every numeric column becomes float, not only those holding the value", 0.9)
     code = frame.code.method("with_columns", _replacement(selector, args))
     return derive(frame, code, same_rows=True)
+
+
+@rule("series.rank")
+def series_rank(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.rank(method, ascending, pct) -> .rank(method) as floats.
+
+    Handles: method average / min / max / dense, and first (Polars' ordinal: ties numbered in
+    order of appearance, also descending); missing values keep no rank (na_option="keep");
+    pct=True divides by the count of values (dense: by the highest rank), value by value so
+    that each quotient is an exact division as in pandas; pandas' ranks are float64.
+    """
+    from porter.rules.io_options import DIVIDE_FUNCTION
+    from porter.rules.windows import RANK_METHODS
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "axis", "method", "numeric_only", "na_option", "ascending", "pct",
+                       positional=6)
+    if call.const("axis", 0, 0) not in (0, "index"):
+        raise Unsupported("axis other than 0")
+    method = call.const("method", 1, "average", kinds=(str,))
+    if call.const("numeric_only", 2, False, kinds=(bool,)):
+        raise Unsupported("numeric_only=True")
+    na_option = call.const("na_option", 3, "keep", kinds=(str,))
+    ascending = call.const("ascending", 4, True, kinds=(bool,))
+    pct = call.const("pct", 5, False, kinds=(bool,))
+    if method not in RANK_METHODS:
+        raise Unsupported(f"method={method!r}")
+    if na_option != "keep":
+        raise Unsupported(f"na_option={na_option!r} (missing values ranked first or last)")
+    if column.dtype in ("category", "enum"):
+        raise Unsupported("ranks of categories follow the order of the categories in pandas")
+    kwargs = {} if ascending else {"descending": True}
+    rank = column.code.method("rank", RANK_METHODS[method], **kwargs)
+    if method != "average":
+        rank = rank.method("cast", emit.atom("pl.Float64"))
+    if pct:
+        # Polars divides by a single value through its reciprocal (one binary digit off
+        # pandas' quotient): divided value by value
+        total = column.code.method("rank", "dense").method("max") if method == "dense" \
+            else column.code.method("count")
+        rank = emit.call(DIVIDE_FUNCTION, rank, total)
+    return derived_column(column, rank, dtype="float")
