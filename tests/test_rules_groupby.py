@@ -599,3 +599,40 @@ g["short"] = g["ok"] - 3
 result = df.groupby("k").sum().reset_index()
 result["less"] = result["ok"] - 3
 ''', "g", "result")
+
+
+# -- any / all ----------------------------------------------------------------------------------
+
+ANY_ALL = [
+    pytest.param('df.groupby("shop")["qty"].{how}()', id="floats: NaN skipped, a group of only NaN"),
+    pytest.param('df.groupby("shop")["n"].{how}()', id="integers"),
+    pytest.param('df.groupby("shop")["t"].{how}()', id="text with None and unicode"),
+    pytest.param('df.groupby("shop")[["qty", "n"]].{how}()', id="two columns"),
+    pytest.param('df.assign(z=df["n"] - 8).groupby("shop")["z"].{how}()', id="zeros"),
+    pytest.param('df.assign(e=df["t"].fillna("")).groupby("shop")["e"].{how}()', id="empty texts"),
+    pytest.param('df.assign(b=df["n"] > 4).groupby("shop").agg(x=("b", "{how}"), y=("qty", "{how}"))',
+                 id="named aggregation of booleans"),
+    pytest.param('df[df["n"] > 100].groupby("shop")["qty"].{how}()', id="empty frame"),
+]
+
+
+@pytest.mark.parametrize("how", ["any", "all"])
+@pytest.mark.parametrize("expr", ANY_ALL)
+def test_groupby_any_all_matches_pandas(expr: str, how: str) -> None:
+    differential(FRAME + f"result = {expr.format(how=how)}\n")
+
+
+@pytest.mark.parametrize("known", [False, True], ids=["unknown types", "types from --data"])
+def test_groupby_any_all_of_read_booleans_with_missing_values(tmp_path, monkeypatch, known) -> None:
+    # pandas reads True/False with a blank as an object column and skips the missing value
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "d.csv").write_text("k,ok,v\na,True,1.5\na,,0\nb,,\nc,False,0\nc,True,\nd,False,2\n")
+    options = {"data_dir": str(tmp_path)} if known else {}
+    found = differential('import pandas as pd\nd = pd.read_csv("d.csv")\n'
+                         'result = d.groupby("k").agg(a=("ok", "any"), b=("ok", "all"), '
+                         'c=("v", "any"), e=("v", "all"))\n', **options)
+    assert '.any().alias("a")' in found.converted_text
+
+
+def test_groupby_any_skipna_false_is_a_todo() -> None:
+    check_todo(FRAME + 'r = df.groupby("shop")["qty"].any(skipna=False)\n', "groupby.any")

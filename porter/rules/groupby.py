@@ -20,7 +20,7 @@ from porter.translate.context import (
 from porter.translate.values import Column, Frame, Grouped, Module, Opaque, Scalar, Value
 
 AGGREGATIONS = ("sum", "mean", "median", "min", "max", "std", "var", "count", "nunique",
-                "first", "last", "size")
+                "first", "last", "size", "any", "all")
 COUNTS = {"count", "nunique", "size"}
 
 
@@ -44,6 +44,19 @@ def agg_expr(column: Code, how: str, dtype: str | None = None) -> Code:
         # Python's min/max keep a NaN met first (nothing compares above it) and skip later ones
         return emit.when(column.method("first").method("is_not_null"), column.method(how[8:]))
     if how in ("sum", "mean", "median", "min", "max", "std", "var"):
+        return column.method(how)
+    if how in ("any", "all"):
+        # pandas skips missing values (skipna=True): a group of only missing values is False
+        # for any, True for all, as Polars' any/all ignoring nulls; numbers are true when not
+        # 0 and text when not empty; a column of unknown type is cast (text fails loudly)
+        if dtype in ("int", "float"):
+            column = emit.binop(column, "!=", 0)
+        elif dtype == "str":
+            column = emit.binop(column, "!=", "")
+        elif dtype is None:
+            column = column.method("cast", emit.atom("pl.Boolean"))
+        elif dtype != "bool":
+            raise Unsupported(f"aggregation {how!r} of a {dtype} column")
         return column.method(how)
     raise Unsupported(f"aggregation {how!r}")
 
