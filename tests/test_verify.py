@@ -135,11 +135,24 @@ def test_an_output_that_cannot_be_read_back_is_named(tmp_path):
     data.mkdir()
     writer = "open('broken.parquet', 'wb').write(b'not a parquet file')\n"
     (data / "a.py").write_text(writer)
-    result = verify(data / "a.py", writer, data)
+    other = "open('broken.parquet', 'wb').write(b'not a parquet file either')\n"
+    result = verify(data / "a.py", other, data)
     assert result.verdict == "error"
     (out,) = result.outputs
     assert out.name == "broken.parquet" and out.comparison.status == "error"
     assert "broken.parquet" in out.comparison.detail or "read back" in out.comparison.detail
+    # the same bytes on both sides are the same output, table or not (JSON Lines, say)
+    same = verify(data / "a.py", writer, data)
+    assert same.verdict == "same" and "identical bytes" in same.outputs[0].comparison.detail
+
+
+def test_same_values_written_as_other_text_are_said_so(tmp_path):
+    data = tmp_path / "work"
+    data.mkdir()
+    (data / "a.py").write_text("open('out.csv', 'w').write('year\\n2024.0\\n')\n")
+    result = verify(data / "a.py", "open('out.csv', 'w').write('year\\n2024\\n')\n", data)
+    (out,) = result.outputs
+    assert out.comparison.status == "same" and "other text" in out.comparison.detail
 
 
 def test_rows_in_another_order_fail_unless_ignored(tmp_path, capsys):
