@@ -360,3 +360,45 @@ def test_columns_chosen_by_a_list_built_from_the_names(key: str) -> None:
 def test_columns_of_a_grouped_frame_chosen_by_a_list_in_a_name() -> None:
     differential(GROUPED + 's = df.groupby("kiln")[["loss", "n"]].mean()\ncols = ["n"]\n'
                  "result = s[cols]\n")
+
+
+# -- a True/False column as a query condition ----------------------------------------------------
+
+QUERY_CONDITIONS = [
+    pytest.param('df.query("sold and kg > 1")', id="column and comparison"),
+    pytest.param('df.query("kg > 1 and sold")', id="comparison and column"),
+    pytest.param('df.query("sold or kg > 1")', id="column or comparison with missing kg"),
+    pytest.param('df.query("not sold")', id="not column"),
+    pytest.param('df.query("not sold and grade == \'A\'")', id="not column and comparison"),
+    pytest.param('df.query("sold")', id="bare column"),
+    pytest.param('df.query("`is sold` and n > 2")', id="backquoted column"),
+    pytest.param('df.query("not (sold or kg > 1)")', id="not of or with missing kg"),
+    pytest.param('df[df["n"] > 100].query("sold and kg > 1")', id="empty frame"),
+]
+
+
+@pytest.mark.parametrize("expr", QUERY_CONDITIONS)
+def test_query_with_a_condition_column_matches_pandas(expr: str) -> None:
+    differential(FRAME + 'df["sold"] = df["n"] % 2 == 0\ndf["is sold"] = df["grade"] == "A"\n'
+                 f"result = {expr}\n")
+
+
+def test_query_condition_column_ports() -> None:
+    check_ports(FRAME + 'df["sold"] = df["n"] > 2\nr = df.query("sold and kg > 0")\n',
+                'df.filter(pl.col("sold") & (pl.col("kg") > 0))')
+
+
+def test_query_number_column_as_a_condition_is_a_todo() -> None:
+    check_todo(FRAME + 'r = df.query("n and kg > 0")\n', "frame.query")
+
+
+def test_query_condition_column_read_without_types(tmp_path, monkeypatch) -> None:
+    # True/False with a blank: an object column in pandas, whose missing value `and`/`or` take
+    # as False; porter does not know the type without --data (0.9)
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "d.csv").write_text("k,ok,v\na,True,1.5\nb,,0\nc,,\nd,False,0\né,True,\nf,False,2\n")
+    found = differential('import pandas as pd\nd = pd.read_csv("d.csv")\n'
+                         'result = d.query("ok and v > 0")\nother = d.query("ok or v > 0")\n',
+                         "result", "other")
+    sites = [s for s in found.sites if s.key == "frame.query"]
+    assert sites and all(s.status == "converted" and s.confidence == 0.9 for s in sites)

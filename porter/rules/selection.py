@@ -303,7 +303,8 @@ def query(call: PandasCall, ctx: RuleContext) -> Value:
     """df.query("kg > 10 and grade == 'A'") -> .filter(...) built from the same expression.
 
     Handles: `and`/`or`/`not`, comparisons (chained ones too), `in`/`not in` lists, @variables
-    and backquoted names; missing values compare as pandas compares them.
+    and backquoted names, a True/False column as a condition ("is_sold and kg > 0"); missing
+    values compare as pandas compares them.
     """
     frame = frame_of(call)
     ctx.reject_unknown(call, "expr", positional=1)
@@ -355,9 +356,29 @@ class _QueryBuilder:
             return emit.binop(left, "&" if isinstance(node.operator, cst.BitAnd) else "|", right), lnull or rnull
         if isinstance(node, cst.Comparison):
             return self.comparison(node)
+        if isinstance(node, cst.Name) and not node.value.startswith("__var__") \
+                and node.value not in ("True", "False", "None"):
+            return self.condition_column(node), True
         if node.lpar:
             return self.boolean(node.with_changes(lpar=[], rpar=[]))
         raise Unsupported("this query expression is not a comparison porter ports")
+
+    def condition_column(self, node: cst.Name) -> Code:
+        """A column used as a condition ("is_sold and price > 0"): its True/False values; a
+        missing value is no match, as pandas' `and`/`or` take it (pandas raises for a missing
+        value in the bare column or under `not`)."""
+        code = self.operand(node)
+        name = node.value
+        if name.startswith("__col__"):
+            name = bytes.fromhex(name[len("__col__"):]).decode()
+        dtype = self.frame.dtype(name)
+        if dtype is None:
+            self.ctx.lower(f"{name!r} is used as a condition: it must hold True/False (pandas "
+                           "combines numbers bit by bit); run with --data to know its type", 0.9)
+        elif dtype != "bool":
+            raise Unsupported(f"the {dtype} column {name!r} used as a condition (pandas combines "
+                              "its values bit by bit)")
+        return code
 
     def comparison(self, node: cst.Comparison) -> tuple[Code, bool]:
         parts: list[Code] = []
