@@ -18,11 +18,11 @@ from porter.analysis import pandas_names
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.rules.ops import int64_branches, int64_lit, may_hold_nan
+from porter.rules.ops import abs_, compare, int64_branches, int64_lit, may_hold_nan, round_
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_of, derived_column, value_dtype,
 )
-from porter.translate.values import Column, Frame, Opaque, Value
+from porter.translate.values import Column, Frame, Items, Opaque, Scalar, Value
 
 
 def frame_lambda(node: cst.Lambda, frame: Frame, ctx: RuleContext) -> Value:
@@ -616,3 +616,252 @@ def iterrows_appends(call: PandasCall, ctx: RuleContext) -> Value:
     statements += [(None, emit.atom(name).method("extend", emit.atom("row_values").index(name).method("to_list")))
                    for name, _ in columns]
     return Opaque(Code("row_values"), const=tuple(statements))
+
+
+# -- comparison methods, numpy functions on a column -----------------------------------------
+
+_COMPARE_METHODS = {"eq": "==", "ne": "!=", "lt": "<", "le": "<=", "gt": ">", "ge": ">="}
+
+
+@rule("series.eq", "series.ne", "series.lt", "series.le", "series.gt", "series.ge")
+def compare_method(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.eq(v) / ne / lt / le / gt / ge -> the operator (==, !=, ...), as `s == v` is ported.
+
+    Handles: everything the operators handle (a missing value compares False, True for ne).
+    Caveats: level, fill_value and a list or frame as the other operand are TODOs.
+    """
+    ctx.reject_unknown(call, "other", positional=1)
+    other = call.arg("other", 0)
+    if not isinstance(other, (Column, Scalar, Opaque)) or (
+            isinstance(other, Opaque) and (not other.is_const
+                                           or isinstance(other.const, (list, tuple, dict, set)))):
+        raise Unsupported("a comparison with a list, a frame or a value porter does not know")
+    return compare(PandasCall(call.receiver, _COMPARE_METHODS[call.name], (other,), node=call.node), ctx)
+
+
+def _numpy_column(call: PandasCall, ctx: RuleContext, name: str) -> Column:
+    ctx.reject_unknown(call, name, positional=1)
+    column = call.arg(name, 0)
+    if not isinstance(column, Column):
+        raise Unsupported(f"np.{call.name} of something other than a column")
+    return column
+
+
+def _as_element(result: Value, column: Column) -> Value:
+    """Inside a lambda the result stays a value of the lambda's parameter."""
+    return replace(result, element=True) if column.element and isinstance(result, Column) else result
+
+
+@rule("np.round", "np.around", "np.abs", "np.absolute")
+def np_same_as_method(call: PandasCall, ctx: RuleContext) -> Value:
+    """np.round(s, n) / np.abs(s) -> what s.round(n) / s.abs() give (.round(n) / .abs()).
+
+    Handles: numpy rounds half to even, as pandas' Series.round and Polars.
+    Caveats: a frame (np.round(df)), out= and where= are TODOs.
+    """
+    if call.name in ("round", "around"):
+        ctx.reject_unknown(call, "a", "decimals", positional=2)
+        column = call.arg("a", 0)
+        if not isinstance(column, Column):
+            raise Unsupported("np.round of something other than a column")
+        if column.dtype in ("str", "bool", "datetime", "date", "category", "enum"):
+            raise Unsupported(f"np.round of a {column.dtype} column")
+        kwargs = {"decimals": call.kwargs["decimals"]} if "decimals" in call.kwargs else {}
+        args = call.args[1:2]
+        result = round_(PandasCall(column, "round", tuple(args), kwargs, call.node), ctx)
+    else:
+        column = _numpy_column(call, ctx, "x")
+        if column.dtype in ("str", "datetime", "date", "category", "enum"):
+            raise Unsupported(f"np.abs of a {column.dtype} column")
+        if column.dtype == "bool":
+            raise Unsupported("np.abs of a True/False column")
+        result = abs_(PandasCall(column, "abs", (), {}, call.node), ctx)
+    return _as_element(result, column)
+
+
+@rule("np.log", "np.sqrt", "np.exp")
+def np_math(call: PandasCall, ctx: RuleContext) -> Value:
+    """np.log(s) / np.sqrt(s) / np.exp(s) -> .log() / .sqrt() / .exp().
+
+    Handles: log of 0 is -inf in both; log and sqrt of a negative number are NaN, which pandas
+    counts as missing: made missing (fill_nan(None)); integer columns give floats in both.
+    Caveats: text, date and True/False columns (numpy's float16 for booleans) are TODOs.
+    """
+    column = _numpy_column(call, ctx, "x")
+    if column.dtype not in (None, "int", "float"):
+        raise Unsupported(f"np.{call.name} of a {column.dtype} column")
+    code = column.code.method(call.name)
+    if call.name in ("log", "sqrt"):
+        code = code.method("fill_nan", None)  # a negative number: NaN, missing in pandas
+    return _as_element(derived_column(column, code, dtype="float"), column)
+
+
+# -- np.select --------------------------------------------------------------------------------
+
+def _listed(value: Value, what: str) -> list[Value]:
+    if isinstance(value, Items):
+        return list(value.items)
+    if isinstance(value, Opaque) and isinstance(value.const, (list, tuple)):
+        return [Opaque(emit.lit(v), const=v) for v in value.const]
+    raise Unsupported(f"the {what} are not a list written in the script")
+
+
+_CONSTANT_KINDS = (bool, int, float, str)
+
+
+@rule("np.select")
+def np_select(call: PandasCall, ctx: RuleContext) -> Value:
+    """np.select([c1, c2], [v1, v2], default=d) -> pl.when(c1).then(v1).when(c2).then(v2)
+    .otherwise(d).
+
+    Handles: the first true condition wins, as in numpy; a condition that met a missing value
+    (a comparison) is False and the next one is tried; a blank of a True/False column (NaN)
+    is true for numpy (fill_null(True), as np.where); constant choices take numpy's common
+    type: text with numbers makes every value text (the default 0 becomes "0", NaN "nan"),
+    ints with floats are floats, NaN among numbers is missing, whole numbers are Int64.
+    Caveats: columns among the choices mixed with constants of another kind (numpy makes text
+    of numbers, or an object array) are TODOs.
+    """
+    import numpy as np
+
+    ctx.reject_unknown(call, "condlist", "choicelist", "default", positional=3)
+    conds = _listed(call.arg("condlist", 0), "conditions")
+    choices = _listed(call.arg("choicelist", 1), "choices")
+    default = call.arg("default", 2, Opaque(emit.lit(0), const=0))
+    if not conds or len(conds) != len(choices):
+        raise Unsupported("as many conditions as choices are needed (numpy raises)")
+    if not all(isinstance(c, Column) for c in conds):
+        raise Unsupported("a condition that is not a column")
+    values = [*choices, default]
+    base = conds[0]
+    assert isinstance(base, Column)
+    frame = base.frame
+    if any(isinstance(v, Column) and v.frame.rows != frame.rows for v in (*conds, *values)):
+        raise Unsupported("conditions and choices of different frames")
+    constant = [isinstance(v, Opaque) and isinstance(v.const, _CONSTANT_KINDS) for v in values]
+    dtype: str | None
+    if all(constant):
+        # numpy's own result: one row per branch, the last the default
+        n = len(conds)
+        try:
+            picked = np.select([np.arange(n + 1) == k for k in range(n)],
+                               [v.const for v in choices], default=default.const)  # type: ignore[union-attr]
+        except (TypeError, ValueError) as exc:
+            raise Unsupported(f"numpy refuses these choices ({type(exc).__name__}: text mixed with "
+                              "numbers has no common type)") from None
+        kind = picked.dtype.kind
+        if kind == "U":
+            codes = [emit.pl("lit", str(x)) for x in picked.tolist()]
+            dtype = "str"
+        elif kind == "f":
+            items = [None if x != x else float(x) for x in picked.tolist()]
+            codes = [emit.pl("lit", x) for x in items]
+            if all(x is None for x in items):
+                codes = [emit.pl("lit", None, dtype=emit.atom("pl.Float64")) for _ in items]
+            dtype = "float"
+        elif kind == "i":
+            codes = [int64_lit(int(x)) for x in picked.tolist()]
+            dtype = "int"
+        elif kind == "b":
+            codes = [emit.pl("lit", bool(x)) for x in picked.tolist()]
+            dtype = "bool"
+        else:
+            raise Unsupported(f"choices numpy makes {picked.dtype} of")
+    else:
+        kinds = set()
+        for v in values:
+            if isinstance(v, Column):
+                kinds.add(v.dtype)
+            elif isinstance(v, Opaque) and isinstance(v.const, _CONSTANT_KINDS):
+                c = v.const
+                kinds.add("bool" if isinstance(c, bool) else "str" if isinstance(c, str)
+                          else "number")
+            else:
+                raise Unsupported("a choice porter does not know the type of")
+        numbers = {"int", "float", "number"}
+        if kinds <= numbers and kinds & {"int", "float"}:
+            dtype = "float" if kinds & {"float"} or any(
+                isinstance(v, Opaque) and isinstance(v.const, float) for v in values) else "int"
+        elif kinds in ({"str"}, {"bool"}):
+            dtype = kinds.pop()
+        else:
+            raise Unsupported("choices of different or unknown types: numpy makes them one type "
+                              "(numbers become text, or an object array)")
+        codes = []
+        for v in values:
+            if isinstance(v, Column):
+                codes.append(ctx.bool_expr(v, frame) if v.dtype == "bool" else ctx.expr(v, frame))
+            else:
+                c = v.const  # type: ignore[union-attr]
+                codes.append(emit.pl("lit", None if isinstance(c, float) and c != c else c))
+    code: Code | None = None
+    for cond, value in zip(conds, codes):
+        test = ctx.expr(cond, frame)
+        if may_hold_nan(cond, unknown=True):
+            # a blank of a True/False column is NaN in pandas, which numpy takes as true
+            test = test.method("fill_null", True)
+        code = emit.pl("when", test).method("then", value) if code is None \
+            else code.method("when", test).method("then", value)
+    assert code is not None
+    code = code.method("otherwise", codes[-1])
+    return derived_column(base, code, dtype=dtype, name=None, others=[*conds, *values])
+
+
+# -- row-wise reductions -------------------------------------------------------------------------
+
+_HORIZONTAL = {"sum": "sum_horizontal", "max": "max_horizontal", "min": "min_horizontal",
+               "mean": "mean_horizontal"}
+
+
+@rule("frame.sum", "frame.max", "frame.min", "frame.mean")
+def frame_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
+    """df[[a, b]].sum(axis=1) / max / min / mean -> pl.sum_horizontal(a, b) / ...
+
+    Handles: missing values are skipped as pandas' skipna: a row with none sums to 0 and has a
+    missing max, min and mean; sum(min_count=k) is missing where fewer than k values are
+    present; a sum of True/False columns counts them (Int64, as pandas' int64).
+    Caveats: per-column totals (axis=0: pandas gives a Series indexed by column name),
+    skipna=False, numeric_only and text or date columns are TODOs. Without the column types,
+    an integer column holding missing values is float in pandas (3.0 where Polars writes 3)
+    (0.95).
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    known = ["axis", "skipna", "numeric_only"] + (["min_count"] if call.name == "sum" else [])
+    ctx.reject_unknown(call, *known)
+    axis = call.const("axis", None, 0, kinds=(int, str))
+    if axis not in (1, "columns"):
+        raise Unsupported(f"a {call.name} per column (axis=0)")
+    if not call.const("skipna", None, True, kinds=(bool,)):
+        raise Unsupported("skipna=False")
+    if call.const("numeric_only", None, False, kinds=(bool,)):
+        raise Unsupported("numeric_only=True")
+    min_count = call.const("min_count", None, 0, kinds=(int,)) if call.name == "sum" else 0
+    if frame.columns is None or not frame.columns:
+        raise Unsupported("the frame's columns are not known")
+    if frame.index:
+        raise Unsupported("a frame with an index of its own")
+    columns = [column_of(frame, c) for c in frame.columns]
+    kinds = {c.dtype for c in columns}
+    allowed = {None, "int", "float", "bool"} if call.name == "sum" else {None, "int", "float"}
+    if not kinds <= allowed:
+        raise Unsupported(f"a row {call.name} over {', '.join(sorted(str(k) for k in kinds - allowed))} "
+                          "columns")
+    if None in kinds:
+        ctx.lower("the column types are not known: an integer column holding missing values is "
+                  "float in pandas, so its row-wise result is written 3.0 where Polars writes 3",
+                  0.95)
+    codes = [c.code for c in columns]
+    code = emit.pl(_HORIZONTAL[call.name], *codes)
+    dtype = "float" if call.name == "mean" or "float" in kinds else ("int" if None not in kinds else None)
+    if call.name == "sum" and "bool" in kinds and "float" not in kinds:
+        code = code.method("cast", emit.atom("pl.Int64"))  # a count of True: UInt32 in Polars
+    if "float" in kinds and kinds & {"int", "bool"}:
+        code = code.method("cast", emit.atom("pl.Float64"))
+    if min_count > 0:
+        present = [c.method("is_not_null") for c in codes]
+        enough = emit.pl("any_horizontal", *present) if min_count == 1 else emit.binop(
+            emit.pl("sum_horizontal", *present), ">=", min_count)
+        code = emit.when(enough, code)
+    base = Column(emit.pl("lit", None), frame=frame, name=None)
+    return derived_column(base, code, dtype=dtype, name=None, others=columns)
