@@ -402,3 +402,84 @@ def test_query_condition_column_read_without_types(tmp_path, monkeypatch) -> Non
                          "result", "other")
     sites = [s for s in found.sites if s.key == "frame.query"]
     assert sites and all(s.status == "converted" and s.confidence == 0.9 for s in sites)
+
+
+# -- column names renamed with string methods -------------------------------------------------
+
+NAMES_FRAME = """\
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({
+    " Site Name ": ["Kai", None, "Ünï"],
+    "Visit  Date\\x1f": [1.5, np.nan, None],
+    "COUNT": [1, 2, 2],
+    "lot.no": ["a", "b", "c"],
+})
+"""
+
+RENAMES = [
+    pytest.param('df.rename(columns=lambda c: c.strip().lower().replace(" ", "_"))', id="rename lambda"),
+    pytest.param("df.rename(columns=lambda c: c.upper())", id="rename lambda upper"),
+    pytest.param('df.rename(lambda col: col.rstrip().replace(".", "_", 1), axis=1)', id="rename mapper axis 1"),
+    pytest.param('df.rename(columns=lambda c: c.removeprefix(" "))', id="rename lambda removeprefix"),
+]
+
+
+@pytest.mark.parametrize("expr", RENAMES)
+def test_rename_function_matches_pandas(expr: str) -> None:
+    differential(NAMES_FRAME + f"result = {expr}\n")
+
+
+SET_NAMES = [
+    pytest.param('df.columns.str.strip().str.lower().str.replace(" ", "_")', id="strip lower replace"),
+    pytest.param('df.columns.str.replace(".", "_")', id="replace is not a pattern"),
+    pytest.param('df.columns.str.strip(" S")', id="strip characters"),
+    pytest.param("df.columns.str.rstrip().str.upper()", id="rstrip upper"),
+]
+
+
+@pytest.mark.parametrize("expr", SET_NAMES)
+def test_set_columns_from_string_methods_matches_pandas(expr: str) -> None:
+    found = differential(NAMES_FRAME + f"df.columns = {expr}\nresult = df\n")
+    assert "collect_schema" not in found.converted_text  # the names are computed by porter
+
+
+def test_names_from_string_methods_on_an_empty_frame() -> None:
+    differential('import pandas as pd\ndf = pd.DataFrame({" A b ": [], "C": []})\n'
+                 'df.columns = df.columns.str.strip().str.replace(" ", "_")\n'
+                 "other = df.rename(columns=lambda c: c.lower())\nresult = df\n", "result", "other")
+
+
+def test_names_from_string_methods_without_known_columns(tmp_path, monkeypatch) -> None:
+    # without --data: the same Python methods at run time; rename takes the lambda itself
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "d.csv").write_text(" Site Name ,Visit  Date,lot.no\nKai,1.5,a\n,,b\n")
+    found = differential('import pandas as pd\nd = pd.read_csv("d.csv")\n'
+                         'result = d.rename(columns=lambda c: c.strip().lower().replace(" ", "_"))\n'
+                         "other = d.copy()\n"
+                         'other.columns = other.columns.str.strip().str.replace(".", "_")\n',
+                         "result", "other")
+    assert 'rename(lambda c: c.strip().lower().replace(" ", "_"))' in found.converted_text
+    assert '[c.strip().replace(".", "_") for c in' in found.converted_text
+
+
+NAME_TODOS = [
+    pytest.param("df.rename(columns=lambda c: c.title())", "frame.rename", id="a method porter does not read"),
+    pytest.param("df.rename(columns=str.lower)", "frame.rename", id="a function by name"),
+    pytest.param('df.rename(columns=lambda c: c.replace(" ", ""))', "frame.rename",
+                 id="new names repeat a name"),
+    pytest.param('df.columns = df.columns.str.replace(".", "_", regex=True)', "frame.columns.str.replace",
+                 id="regex replace"),
+]
+
+
+@pytest.mark.parametrize("before, key", NAME_TODOS)
+def test_names_from_string_methods_todo(before: str, key: str) -> None:
+    check_todo(NAMES_FRAME.replace('"lot.no"', '"Site Name"') + "result = " * before.startswith("df.r")
+               + before + "\n", key)
+
+
+def test_lower_of_non_ascii_names_is_a_todo() -> None:
+    # pandas lower-cases "İ" to "i", Python to "i̇"
+    check_todo('import pandas as pd\ndf = pd.DataFrame({"İd": [1]})\ndf.columns = df.columns.str.lower()\n',
+               "frame.columns.str.lower")

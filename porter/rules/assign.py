@@ -227,7 +227,11 @@ def rename(call: PandasCall, ctx: RuleContext) -> Value:
             raise Unsupported("renaming index labels")
         mapping = call.arg("mapper", 0)
     if not (isinstance(mapping, Opaque) and isinstance(mapping.const, dict)):
-        raise Unsupported("a rename function or a mapping built at run time")
+        from porter.rules.selection import rename_function  # a lambda of string methods
+        renamed = rename_function(frame, mapping, ctx)
+        if not isinstance(renamed, dict):
+            return renamed
+        mapping = Opaque(emit.lit(renamed), const=renamed)
     names = {str(k): v for k, v in mapping.const.items()}
     if not all(isinstance(v, str) for v in names.values()):
         raise Unsupported("renaming to non-string names")
@@ -292,8 +296,8 @@ def set_columns(call: PandasCall, ctx: RuleContext) -> Value:
     The columns pandas keeps in the index (a groupby's keys) are not among the names."""
     frame = call.receiver
     assert isinstance(frame, Frame)
-    value = call.args[0]
-    from porter.rules.selection import data_columns
+    from porter.rules.selection import computed_names, data_columns
+    value = computed_names(call.args[0])  # df.columns.str.strip()...: the names as a list
     old_names = data_columns(frame).method("collect_schema").method("names")
     if not (isinstance(value, Opaque) and isinstance(value.const, list)):
         if isinstance(value, Opaque):

@@ -3,7 +3,10 @@ query, and what a frame knows about itself (columns, shape, dtypes, len)."""
 
 from __future__ import annotations
 
+import ast
 import re
+from dataclasses import dataclass, field
+
 import libcst as cst
 
 from porter.emit import code as emit
@@ -541,3 +544,168 @@ def series_explode(call: PandasCall, ctx: RuleContext) -> Value:
     return column_of(rows, name) if column.name is not None else \
         Column(emit.col(name), frame=rows, name=None, dtype=element, refs=frozenset({name}),
                versions=((name, 0),))
+
+
+# -- column names computed with string methods ----------------------------------------------
+
+# Python's str methods that a rename function may call on each name (pandas calls the function
+# itself, Polars' rename too), with the number of arguments each takes
+NAME_METHODS = {"strip": (0, 1), "lstrip": (0, 1), "rstrip": (0, 1), "lower": (0, 0),
+                "upper": (0, 0), "casefold": (0, 0), "replace": (2, 3), "removeprefix": (1, 1),
+                "removesuffix": (1, 1)}
+# pandas' Index.str methods that give what the Python method of that name gives on a name
+# (lower and upper only on ASCII names: pyarrow's lower-cases "İ" to "i", upper-cases "ß" to
+# "ẞ", Python's to "i̇" and "SS")
+INDEX_STR_METHODS = {"strip": "to_strip", "lstrip": "to_strip", "rstrip": "to_strip",
+                     "lower": None, "upper": None, "casefold": None, "replace": None,
+                     "removeprefix": "prefix", "removesuffix": "suffix"}
+
+NameOps = tuple[tuple[str, tuple[object, ...]], ...]
+
+
+@dataclass(frozen=True)
+class ColumnNames(Scalar):
+    """A frame's column names after string methods (df.columns.str.strip().str.lower()): the
+    Python list `code`, `base` the names before them and `ops` the methods in order."""
+
+    base: Code | None = field(default=None, kw_only=True)
+    ops: NameOps = field(default=(), kw_only=True)
+
+
+def known_data_columns(frame: Frame) -> list[str] | None:
+    """The names pandas' df.columns holds, when porter knows them (none known: not trusted,
+    an aggregation of columns porter does not know lists only its keys)."""
+    if frame.columns is None:
+        return None
+    data = [c for c in frame.columns if c not in frame.index]
+    return data or None
+
+
+def apply_name_ops(name: str, ops: NameOps) -> str:
+    for method, args in ops:
+        name = getattr(str, method)(name, *args)
+    return name
+
+
+def _name_ops_text(param: str, ops: NameOps) -> str:
+    text = param
+    for method, args in ops:
+        text += f".{method}({', '.join(emit.lit(a).text for a in args)})"
+    return text
+
+
+def lambda_name_ops(node: object) -> NameOps | None:
+    """`lambda c: c.strip().lower().replace(" ", "_")` -> its string methods in order, when the
+    body is only such methods called with literal arguments on the parameter."""
+    if not isinstance(node, cst.Lambda) or len(node.params.params) != 1 or node.params.star_arg \
+            not in (None, cst.MaybeSentinel.DEFAULT) or node.params.kwonly_params \
+            or node.params.star_kwarg or node.params.posonly_params \
+            or node.params.params[0].default is not None:
+        return None
+    param = node.params.params[0].name.value
+    ops: list[tuple[str, tuple[object, ...]]] = []
+    expr: cst.BaseExpression = node.body
+    while isinstance(expr, cst.Call):
+        func = expr.func
+        if not isinstance(func, cst.Attribute) or func.attr.value not in NAME_METHODS:
+            return None
+        args: list[object] = []
+        for arg in expr.args:
+            if arg.keyword is not None or arg.star:
+                return None
+            try:
+                args.append(ast.literal_eval(cst.Module([]).code_for_node(arg.value)))
+            except (ValueError, SyntaxError):
+                return None
+        low, high = NAME_METHODS[func.attr.value]
+        if not low <= len(args) <= high or not all(
+                isinstance(a, str) or a is None or i == 2 and isinstance(a, int)
+                for i, a in enumerate(args)):
+            return None
+        ops.append((func.attr.value, tuple(args)))
+        expr = func.value
+    if not (isinstance(expr, cst.Name) and expr.value == param) or not ops:
+        return None
+    return tuple(reversed(ops))
+
+
+def rename_function(frame: Frame, function: Value, ctx: RuleContext) -> dict[str, str] | Value:
+    """df.rename(columns=lambda c: c.strip().lower()): the new names computed now when porter
+    knows the columns (a dict for frame.rename), else LazyFrame.rename(<the lambda>)."""
+    ops = lambda_name_ops(function.node) if isinstance(function, Opaque) else None
+    if ops is None:
+        raise Unsupported("a rename function porter cannot read (only a lambda calling string "
+                          "methods on the name)")
+    data = known_data_columns(frame)
+    if data is not None:
+        return {c: new for c in data if (new := apply_name_ops(c, ops)) != c}
+    if frame.index:
+        raise Unsupported("a rename function on a frame with index levels whose columns are not "
+                          "known (pandas leaves the levels' names alone)")
+    code = frame.code.method("rename", emit.atom(f"lambda c: {_name_ops_text('c', ops)}"))
+    return derive(frame, code, same_rows=True, columns=None, dtypes=(), column_pairs=())
+
+
+@rule(*(f"frame.columns.str.{m}" for m in INDEX_STR_METHODS))
+def columns_str(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.columns.str.strip() / lower() / replace(" ", "_") ... -> the new names computed when
+    porter knows the columns (with --data), else the same Python str method on each name.
+
+    Handles: Index.str.replace replaces text, not a pattern (regex=False, pandas 3's default);
+    strip / lstrip / rstrip with or without characters; lower / upper on ASCII names (pandas'
+    pyarrow strings change a few other letters unlike Python).
+    """
+    names = call.receiver
+    assert isinstance(names, Scalar) and names.of is not None
+    frame = names.of
+    method = call.name
+    base = names.base if isinstance(names, ColumnNames) and names.base is not None else names.code
+    ops = names.ops if isinstance(names, ColumnNames) else ()
+    if method == "replace":
+        ctx.reject_unknown(call, "pat", "repl", "n", "regex", positional=3)
+        if call.const("regex", None, False) is not False:
+            raise Unsupported("regex=True (a pattern)")
+        pat, repl = call.const("pat", 0), call.const("repl", 1)
+        n = call.const("n", 2, -1, kinds=(int,))
+        if not (isinstance(pat, str) and isinstance(repl, str)):
+            raise Unsupported("replace with something other than text")
+        args: tuple[object, ...] = (pat, repl) if n == -1 else (pat, repl, n)
+    else:
+        keyword = INDEX_STR_METHODS[method]
+        if keyword is None:
+            ctx.reject_unknown(call)
+            args = ()
+        else:
+            ctx.reject_unknown(call, keyword, positional=1)
+            value = call.const(keyword, 0, None)
+            if value is not None and not isinstance(value, str):
+                raise Unsupported(f"{method} of something other than text")
+            args = () if value is None and keyword == "to_strip" else (value,)
+            if value is None and keyword != "to_strip":
+                raise Unsupported(f"{method} without a text")
+    ops = (*ops, (method, args))
+    known = known_data_columns(frame)
+    if known is not None:
+        if method in ("lower", "upper", "casefold") and not all(apply_name_ops(c, ops[:-1]).isascii()
+                                                                 for c in known):
+            raise Unsupported(f"{method} of non-ASCII names (pandas' and Python's differ on a "
+                              "few letters)")
+        code = emit.lit([apply_name_ops(c, ops) for c in known])
+    else:
+        if method in ("lower", "upper", "casefold"):
+            ctx.lower(f"pandas' Index.str.{method} differs from Python's on a few non-ASCII "
+                      "letters (İ, ß)", 0.95)
+        code = emit.atom(f"[c{_name_ops_text('', ops)} for c in {base.text}]")
+    return ColumnNames(code, pytype="list[str]", of=frame, base=base, ops=ops, sites=names.sites)
+
+
+def computed_names(value: Value) -> Value:
+    """df.columns = <names after string methods>: a list porter computed (an Opaque holding
+    it), else the Python list built at run time."""
+    if not isinstance(value, ColumnNames):
+        return value
+    known = known_data_columns(value.of) if value.of is not None else None
+    if known is not None:
+        names = [apply_name_ops(c, value.ops) for c in known]
+        return Opaque(emit.lit(names), const=names)
+    return Opaque(value.code)

@@ -308,6 +308,8 @@ class Evaluator:
                              node, "porter has no rule for this attribute")
         if isinstance(receiver, Scalar) and receiver.pytype == "list[str]":
             return self.column_names_attribute(receiver, name, node)
+        if isinstance(receiver, Scalar) and receiver.pytype == "names.str" and name in pandas_names.STR:
+            return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
         if isinstance(receiver, Parts) and name not in pandas_names.FRAME \
                 and any(label == name for label, _ in receiver.fields):
             # parts.name: a named group's column (anything else is pandas' DataFrame API)
@@ -356,6 +358,8 @@ class Evaluator:
             return BoundMethod(names.code, receiver=names, name=attr) if attr != "values" else names
         if names.of is None:
             return self.generic(node)
+        if attr == "str":  # string methods on the names (rules/selection.py, columns_str)
+            return replace(names, pytype="names.str")
         line, end_line = self.services.position(node)
         site = SiteDraft("frame.columns.index", "todo", "todo", 0.0,
                          f"pandas' Index.{attr} on the column names: porter's names are a list",
@@ -375,7 +379,8 @@ class Evaluator:
         lookup = self.dict_get(node)
         if lookup is not None:
             return lookup
-        if isinstance(func, BoundMethod) and isinstance(func.receiver, Scalar):
+        if isinstance(func, BoundMethod) and isinstance(func.receiver, Scalar) \
+                and func.receiver.pytype != "names.str":
             return func.receiver  # tolist() of the column names: already a list
         if not isinstance(func, (BoundMethod, Module)):
             return self.generic(node)
@@ -901,6 +906,8 @@ def _prefix(value: Value) -> str:
         return f"series.{value.kind}"
     if isinstance(value, Indexer):
         return f"frame.{value.kind}"
+    if isinstance(value, Scalar) and value.pytype == "names.str":
+        return "frame.columns.str"
     return "value"
 
 
