@@ -90,6 +90,132 @@ def names(call: PandasCall, ctx: RuleContext) -> Value:
     return _result(column, _dt(column).method("to_string", _NAMES[call.name]), "str")
 
 
+@rule("series.dt.normalize")
+def normalize(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.dt.normalize() -> dt.truncate("1d").
+
+    Handles: midnight of the same day; NaT stays missing; the unit is kept.
+    Caveats: a column with a time zone is truncated to local midnight in both (a day whose
+    midnight does not exist in that zone is an error in Polars).
+    """
+    column = accessor_column(call)
+    ctx.reject_unknown(call)
+    if column.dtype not in (None, "datetime"):
+        raise ctx.todo(f"a {column.dtype} column")
+    return _result(column, _dt(column).method("truncate", "1d"), "datetime")
+
+
+def _is_day(column: Column, name: str) -> Code:
+    """The pandas .dt.is_* test as a Polars boolean expression (null where the value is)."""
+    dt = _dt(column)
+    day, month = dt.method("day"), dt.method("month")
+    last = emit.binop(day, "==", dt.method("days_in_month"))
+    first = emit.binop(day, "==", 1)
+    if name == "is_month_start":
+        return first
+    if name == "is_month_end":
+        return last
+    if name == "is_year_start":
+        return emit.binop(dt.method("ordinal_day"), "==", 1)
+    if name == "is_year_end":
+        return emit.binop(emit.binop(month, "==", 12), "&", emit.binop(day, "==", 31))
+    if name == "is_quarter_start":
+        return emit.binop(emit.binop(emit.binop(month, "%", 3), "==", 1), "&", first)
+    if name == "is_quarter_end":
+        return emit.binop(emit.binop(emit.binop(month, "%", 3), "==", 0), "&", last)
+    assert name == "is_leap_year"
+    return dt.method("is_leap_year")
+
+
+@rule("series.dt.is_month_start", "series.dt.is_month_end", "series.dt.is_year_start",
+      "series.dt.is_year_end", "series.dt.is_quarter_start", "series.dt.is_quarter_end",
+      "series.dt.is_leap_year")
+def is_day(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.dt.is_month_start / is_month_end / is_year_start … -> dt.day() == 1 … .fill_null(False).
+
+    The same test on dt.day(), dt.month(), dt.ordinal_day(), dt.days_in_month() (is_year_end,
+    is_quarter_start, is_quarter_end too; is_leap_year is dt.is_leap_year()).
+
+    Handles: NaT gives False in pandas (a True/False column without missing values), so the
+    missing results are filled with False; leap days and month ends of every length.
+    """
+    column = accessor_column(call)
+    if column.dtype not in (None, "datetime"):
+        raise ctx.todo(f"a {column.dtype} column")
+    return _result(column, _is_day(column, call.name).method("fill_null", False), "bool")
+
+
+@rule("series.dt.days_in_month", "series.dt.daysinmonth")
+def days_in_month(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.dt.days_in_month -> dt.days_in_month().cast(pl.Int32).
+
+    Handles: leap Februaries; NaT stays missing; Int32 as pandas' int32 (Polars' Int8 would
+    wrap around in arithmetic).
+    Caveats: pandas' int32 becomes float64 when a value is missing; Polars keeps Int32.
+    """
+    column = accessor_column(call)
+    if column.dtype not in (None, "datetime"):
+        raise ctx.todo(f"a {column.dtype} column")
+    return _result(column, _as_int32(_dt(column).method("days_in_month")), "int")
+
+
+@rule("pd.Timestamp")
+def timestamp(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.Timestamp("2024-06-30") -> pl.datetime(2024, 6, 30) inside Polars expressions; the
+    pandas Timestamp itself where plain Python uses the value.
+
+    Handles: the text read by pandas itself (dates, dates with a time, "2024-06"); compared
+    with, added to or subtracted from a datetime column (Timestamp - column is a duration).
+    Caveats: a time zone, nanoseconds, "now"/"today", NaT and a value computed at run time are
+    TODOs; Polars reads the datetime in the column's unit.
+    """
+    ctx.reject_unknown(call, "ts_input", positional=1)
+    text = call.const("ts_input", 0)
+    if not isinstance(text, str):
+        raise ctx.todo("only a date written as text is ported")
+    if text.strip().lower() in ("now", "today"):
+        raise ctx.todo(f"{text!r} is read when the script runs")
+    import pandas as pd
+    try:
+        stamp = pd.Timestamp(text)
+    except (ValueError, TypeError):
+        raise ctx.todo(f"{text!r} is not a date pandas can read") from None
+    if stamp is pd.NaT:
+        raise ctx.todo("NaT")
+    if stamp.tzinfo is not None:
+        raise ctx.todo("a date with a time zone")
+    if stamp.nanosecond:
+        raise ctx.todo("a date with nanoseconds (porter's datetimes hold microseconds)")
+    parts = [stamp.year, stamp.month, stamp.day, stamp.hour, stamp.minute, stamp.second,
+             stamp.microsecond]
+    while len(parts) > 3 and parts[-1] == 0:
+        parts.pop()
+    assert call.node is not None
+    import libcst as cst
+    original = Code(cst.Module([]).code_for_node(call.node))
+    return Scalar(original, pytype="datetime", expr=emit.pl("datetime", *parts))
+
+
+_ISO = {"year": ("iso_year", "Int32"), "week": ("week", "UInt32"), "day": ("weekday", "UInt32")}
+
+
+@rule("series.dt.isocalendar.year", "series.dt.isocalendar.week", "series.dt.isocalendar.day")
+def isocalendar_part(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.dt.isocalendar().year / .week / .day -> dt.iso_year() / dt.week() / dt.weekday(),
+    cast to pandas' types (Int32, UInt32, UInt32).
+
+    Handles: the ISO year of the days around New Year (2024-12-30 is week 1 of 2025); Monday
+    is day 1 in both; NaT stays missing (<NA> in pandas' nullable columns).
+    Caveats: the whole frame isocalendar() makes (or isocalendar()["week"]) stays a TODO.
+    """
+    column = accessor_column(call)
+    if column.dtype not in (None, "datetime"):
+        raise ctx.todo(f"a {column.dtype} column")
+    method, dtype = _ISO[call.name]
+    code = _dt(column).method(method).method("cast", emit.atom(f"pl.{dtype}"))
+    return derived_column(column, code, dtype="int", name=call.name)
+
+
 # -- formats --------------------------------------------------------------------------------
 
 _SAME_FORMAT = set("YmdHMSybBpIj%")
@@ -302,12 +428,37 @@ def to_timedelta(call: PandasCall, ctx: RuleContext) -> Value:
     """pd.to_timedelta(3, unit="D") / pd.to_timedelta("2D") -> pl.duration(days=3) (as
     pd.Timedelta).
 
-    Caveats: a column, a list, a fractional number (nanoseconds in pandas) are TODOs.
+    A column of numbers with unit= -> pl.duration(days=pl.col("n")) (weeks= … microseconds=):
+    NaN and None become missing, as NaT.
+    Caveats: a float column keeps fractions below a microsecond in pandas (nanoseconds), not
+    here (0.95); a column without unit=, a column of text, a list, a fractional number alone
+    (nanoseconds in pandas) are TODOs.
     """
     ctx.reject_unknown(call, "arg", "unit", positional=2)
-    if isinstance(call.arg("arg", 0), Column):
-        raise ctx.todo("a column: only a single number or text is ported")
+    column = call.arg("arg", 0)
+    if isinstance(column, Column):
+        return _column_timedelta(call, column, ctx)
     return timedelta_scalar(_value_us(call, ctx), ctx)
+
+
+_DURATION_KEYWORDS = {unit: keyword for keyword, unit in _KEYWORDS.items()}
+
+
+def _column_timedelta(call: PandasCall, column: Column, ctx: RuleContext) -> Column:
+    """pd.to_timedelta(df["n"], unit="D") -> pl.duration(days=pl.col("n"))."""
+    unit = call.const("unit", 1, None)
+    if unit is None:
+        raise ctx.todo("a column without unit= (numbers are nanoseconds, text is parsed)")
+    keyword = _DURATION_KEYWORDS[_unit(unit, ctx)]
+    if column.dtype not in (None, "int", "float"):
+        raise ctx.todo(f"a {column.dtype} column: only numbers with unit= are ported")
+    if column.dtype != "int":
+        ctx.lower("a fraction below a microsecond: pandas keeps a float column's durations in "
+                  "nanoseconds (1/3 day is 7:59:59.999999997), Polars in microseconds (8:00:00)",
+                  0.95)
+    # NaN and None are both missing (NaT) in pandas; pl.duration gives null for both
+    return derived_column(column, emit.pl("duration", **{keyword: column.code}), dtype=None,
+                          name=column.name)
 
 
 def is_timedelta(value: Value) -> bool:

@@ -255,8 +255,14 @@ class Evaluator:
 
     # -- attributes -----------------------------------------------------------------------------
     def _eval_Attribute(self, node: cst.Attribute) -> Value:
-        receiver = self.eval(node.value)
         name = node.attr.value
+        if name in ("year", "week", "day") and _isocalendar_call(node.value):
+            # s.dt.isocalendar().week: one column of the frame isocalendar() makes
+            accessor = self.eval(node.value.func.value)  # type: ignore[attr-defined]
+            if isinstance(accessor, Accessor) and accessor.kind == "dt":
+                return self.dispatch(f"series.dt.isocalendar.{name}",
+                                     PandasCall(accessor, name, node=node), node)
+        receiver = self.eval(node.value)
         if isinstance(receiver, Module):
             qualname = f"{receiver.qualname}.{name}"
             if qualname in ("numpy.nan", "numpy.NaN", "pandas.NA", "pandas.NaT"):
@@ -909,6 +915,13 @@ def _prefix(value: Value) -> str:
     if isinstance(value, Scalar) and value.pytype == "names.str":
         return "frame.columns.str"
     return "value"
+
+
+def _isocalendar_call(node: cst.BaseExpression) -> bool:
+    """`<...>.dt.isocalendar()` without arguments."""
+    return isinstance(node, cst.Call) and not node.args \
+        and isinstance(node.func, cst.Attribute) and node.func.attr.value == "isocalendar" \
+        and isinstance(node.func.value, cst.Attribute) and node.func.value.attr.value == "dt"
 
 
 def _module_key(qualname: str) -> str:
