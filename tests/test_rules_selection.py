@@ -483,3 +483,8 @@ def test_lower_of_non_ascii_names_is_a_todo() -> None:
     # pandas lower-cases "İ" to "i", Python to "i̇"
     check_todo('import pandas as pd\ndf = pd.DataFrame({"İd": [1]})\ndf.columns = df.columns.str.lower()\n',
                "frame.columns.str.lower")
+
+
+def test_rename_lambda_with_arguments_python_refuses_is_a_todo() -> None:
+    text = convert(NAMES_FRAME + 'r = df.rename(columns=lambda c: c.replace(None, "_"))\n').converted_text
+    assert "# TODO(porter): frame.rename" in text

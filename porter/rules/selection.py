@@ -626,6 +626,10 @@ def lambda_name_ops(node: object) -> NameOps | None:
         expr = func.value
     if not (isinstance(expr, cst.Name) and expr.value == param) or not ops:
         return None
+    try:  # arguments of the wrong type (c.replace(None, "")) fail here, not in porter
+        apply_name_ops("x", tuple(reversed(ops)))
+    except (TypeError, ValueError):
+        return None
     return tuple(reversed(ops))
 
 
