@@ -715,12 +715,13 @@ def np_select(call: PandasCall, ctx: RuleContext) -> Value:
     .otherwise(d).
 
     Handles: the first true condition wins, as in numpy; a condition that met a missing value
-    (a comparison) is False and the next one is tried; a blank of a True/False column (NaN)
-    is true for numpy (fill_null(True), as np.where); constant choices take numpy's common
-    type: text with numbers makes every value text (the default 0 becomes "0", NaN "nan"),
-    ints with floats are floats, NaN among numbers is missing, whole numbers are Int64.
-    Caveats: columns among the choices mixed with constants of another kind (numpy makes text
-    of numbers, or an object array) are TODOs.
+    (a comparison) is False and the next one is tried; constant choices take numpy's common
+    type (computed with numpy), ints with floats are floats, NaN among numbers is missing,
+    whole numbers are Int64.
+    Caveats: numpy raises on text mixed with numbers (the default 0 with text choices): a TODO,
+    kept on numpy. It raises too on a True/False condition column with blanks (an object
+    array), where Polars takes a blank as not true: 0.95 where the column may hold blanks.
+    Columns among the choices mixed with constants of another kind are TODOs.
     """
     import numpy as np
 
@@ -796,10 +797,11 @@ def np_select(call: PandasCall, ctx: RuleContext) -> Value:
                 codes.append(emit.pl("lit", None if isinstance(c, float) and c != c else c))
     code: Code | None = None
     for cond, value in zip(conds, codes):
+        if may_hold_nan(cond):
+            # a True/False column with blanks is an object column in pandas: numpy refuses it
+            ctx.lower("a True/False condition column with blanks is an object column in pandas, "
+                      "which np.select refuses (TypeError); Polars takes a blank as not true", 0.95)
         test = ctx.expr(cond, frame)
-        if may_hold_nan(cond, unknown=True):
-            # a blank of a True/False column is NaN in pandas, which numpy takes as true
-            test = test.method("fill_null", True)
         code = emit.pl("when", test).method("then", value) if code is None \
             else code.method("when", test).method("then", value)
     assert code is not None
