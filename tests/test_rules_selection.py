@@ -488,3 +488,12 @@ def test_lower_of_non_ascii_names_is_a_todo() -> None:
 def test_rename_lambda_with_arguments_python_refuses_is_a_todo() -> None:
     text = convert(NAMES_FRAME + 'r = df.rename(columns=lambda c: c.replace(None, "_"))\n').converted_text
     assert "# TODO(porter): frame.rename" in text
+
+
+@pytest.mark.parametrize("expr", [
+    pytest.param('df.columns.str.startswith(" ")', id="another Index.str method"),
+    pytest.param('df.columns.str.strip().str.contains("o")', id="another method after one porter computes"),
+])
+def test_other_index_str_methods_stay_pandas(expr: str) -> None:
+    found = differential(NAMES_FRAME + f"result = [bool(x) for x in {expr}]\n")
+    assert "frame.columns.index" in found.converted_text

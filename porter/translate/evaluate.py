@@ -315,7 +315,14 @@ class Evaluator:
         if isinstance(receiver, Scalar) and receiver.pytype == "list[str]":
             return self.column_names_attribute(receiver, name, node)
         if isinstance(receiver, Scalar) and receiver.pytype == "names.str" and name in pandas_names.STR:
-            return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
+            if f"frame.columns.str.{name}" in self.services.registry:
+                return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
+            # another Index.str method: pandas' own names, after the string methods porter
+            # computed so far (rules/selection.py, columns_str)
+            done = "".join(f".str.{method}({', '.join(emit.lit(a).text for a in args)})"
+                           for method, args in getattr(receiver, "ops", ()))
+            return self.column_names_attribute(replace(receiver, pytype="list[str]"),
+                                               f"{done[1:]}.str.{name}" if done else f"str.{name}", node)
         if isinstance(receiver, Parts) and name not in pandas_names.FRAME \
                 and any(label == name for label, _ in receiver.fields):
             # parts.name: a named group's column (anything else is pandas' DataFrame API)
