@@ -471,6 +471,7 @@ NUMBER_TODOS = [
     pytest.param('r = np.select([df["a"] > 0], [df["k"]], default=0)', "np.select",
                  id="a text column with a number"),
     pytest.param('r = df[["a", "b"]].sum()', "frame.sum", id="per-column totals"),
+    pytest.param('r = df[["a", "b"]].count()', "frame.count", id="per-column counts"),
     pytest.param('r = df[["a", "b"]].mean(axis=1, skipna=False)', "frame.mean", id="skipna False"),
     pytest.param('r = df["a"].eq(df["b"], fill_value=0)', "series.eq", id="eq with fill_value"),
 ]
@@ -536,6 +537,9 @@ NUMBER_COLUMNS = [
     pytest.param('df[["p", "p"]].sum(axis=1)', id="row sum of booleans counts"),
     pytest.param('df[["p", "n"]].sum(axis=1)', id="row sum of booleans and ints"),
     pytest.param('df[["a", "b"]].sum(axis=1) * 2', id="row sum in arithmetic"),
+    pytest.param('df[["a", "b", "k"]].count(axis=1)', id="row count of numbers and text with NaN and None"),
+    pytest.param('df.count(axis="columns")', id="row count of the whole frame"),
+    pytest.param('df[["a", "b"]].sum(axis=1) / df[["a", "b"]].count(axis=1)', id="row sum over row count"),
 ]
 
 

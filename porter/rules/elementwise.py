@@ -815,13 +815,14 @@ _HORIZONTAL = {"sum": "sum_horizontal", "max": "max_horizontal", "min": "min_hor
                "mean": "mean_horizontal"}
 
 
-@rule("frame.sum", "frame.max", "frame.min", "frame.mean")
+@rule("frame.sum", "frame.max", "frame.min", "frame.mean", "frame.count")
 def frame_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
-    """df[[a, b]].sum(axis=1) / max / min / mean -> pl.sum_horizontal(a, b) / ...
+    """df[[a, b]].sum(axis=1) / max / min / mean / count -> pl.sum_horizontal(a, b) / ...
 
     Handles: missing values are skipped as pandas' skipna: a row with none sums to 0 and has a
     missing max, min and mean; sum(min_count=k) is missing where fewer than k values are
-    present; a sum of True/False columns counts them (Int64, as pandas' int64).
+    present; a sum of True/False columns counts them (Int64, as pandas' int64); count(axis=1)
+    counts the present values of columns of any type (Int64).
     Caveats: per-column totals (axis=0: pandas gives a Series indexed by column name),
     skipna=False, numeric_only and text or date columns are TODOs. Without the column types,
     an integer column holding missing values is float in pandas (3.0 where Polars writes 3)
@@ -829,6 +830,8 @@ def frame_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
+    if call.name == "count":
+        return _row_count(call, frame, ctx)
     known = ["axis", "skipna", "numeric_only"] + (["min_count"] if call.name == "sum" else [])
     ctx.reject_unknown(call, *known)
     axis = call.const("axis", None, 0, kinds=(int, str))
@@ -867,3 +870,20 @@ def frame_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
         code = emit.when(enough, code)
     base = Column(emit.pl("lit", None), frame=frame, name=None)
     return derived_column(base, code, dtype=dtype, name=None, others=columns)
+
+
+def _row_count(call: PandasCall, frame: Frame, ctx: RuleContext) -> Value:
+    ctx.reject_unknown(call, "axis", "numeric_only")
+    if call.const("axis", None, 0, kinds=(int, str)) not in (1, "columns"):
+        raise Unsupported("a count per column (axis=0)")
+    if call.const("numeric_only", None, False, kinds=(bool,)):
+        raise Unsupported("numeric_only=True")
+    if frame.columns is None or not frame.columns:
+        raise Unsupported("the frame's columns are not known")
+    if frame.index:
+        raise Unsupported("a frame with an index of its own")
+    columns = [column_of(frame, c) for c in frame.columns]
+    present = [c.code.method("is_not_null") for c in columns]
+    code = emit.pl("sum_horizontal", *present).method("cast", emit.atom("pl.Int64"))
+    base = Column(emit.pl("lit", None), frame=frame, name=None)
+    return derived_column(base, code, dtype="int", name=None, others=columns)
