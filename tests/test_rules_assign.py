@@ -308,3 +308,19 @@ def test_arithmetic_on_whole_numbers_is_one_int64_value() -> None:
     result = convert(FRAME + 'df["c"] = len(df) * 3 + 1\n')
     assert "dtype=pl.Int64" in result.converted_text, result.converted_text
     assert all(s.confidence == 1.0 for s in result.sites if s.key == "frame.setitem"), result.sites
+
+
+def test_values_made_per_row_are_placed_by_position_not_broadcast() -> None:
+    # `[a, b] * 4` and `np.arange(n) - 5` are one value per row: pl.lit gave every row the
+    # whole list; a NaN in a list is missing as in pandas
+    differential('''
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"a": [1, 2, 3, 4, 5, 6, 7, 8]})
+df["f"] = [1.5, 0.25, np.nan, None] * 2
+df["n"] = np.arange(len(df)) - 5
+df["r"] = list(range(8))
+df["k"] = 7
+result = df
+missing = df.isna().sum()
+''', "result", "missing")

@@ -3,6 +3,8 @@ df.loc[mask, "c"] = ..., del df["c"]."""
 
 from __future__ import annotations
 
+import ast
+
 import keyword
 
 import libcst as cst
@@ -75,12 +77,16 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
         # return a Series, which pandas aligns on the index and pl.lit cannot hold
         raise Unsupported(f"`{_short(value.code.text)}` is computed from frame data by code porter "
                           "hands to pandas, and may be a Series: the statement stays pandas")
-    if isinstance(value, Opaque) and value.pytype in ("list", "tuple"):
+    if isinstance(value, Opaque) and (value.pytype in ("list", "tuple") or _array_like(value.code.text)):
         # a list is placed by position, one value per row (pandas raises on another length,
         # and so does Polars); Polars infers the type from the Python values
         ctx.lower(f"`{value.code.text}` is a list placed by position; Polars infers its type "
                   "from the Python values (a whole number beside a float is a float in both)", 0.95)
-        return emit.call("pl.Series", value.code, nan_to_null=True), None
+        if _numpy_made(value.code.text):
+            return emit.call("pl.Series", value.code, nan_to_null=True), None
+        # nan_to_null reads numpy arrays only: a NaN in a list (np.nan) is made missing here,
+        # as pandas holds it (x != x only for NaN)
+        return emit.call("pl.Series", Code(f"[None if x != x else x for x in {value.code.text}]")), None
     if isinstance(value, Opaque) and value.pytype == "int":
         return int64_lit(value.code), "int"  # arithmetic on whole numbers (len(df) * 2)
     if isinstance(value, Opaque):
@@ -130,6 +136,54 @@ def made_categories(text: str) -> tuple[str, ...] | None:
         raise Unsupported("a Categorical whose categories' order porter cannot read here: the "
                           "statement stays pandas")
     return made
+
+
+_ARRAY_MAKERS = {"arange", "array", "asarray", "linspace", "repeat", "tile", "zeros", "ones",
+                 "full", "empty", "concatenate", "cumsum", "random", "where", "select"}
+
+
+def _numpy_made(text: str) -> bool:
+    """Code that is one call of a numpy function (np.arange(n) - 5 is not: a BinOp)."""
+    try:
+        node = ast.parse(text, mode="eval").body
+    except SyntaxError:
+        return False
+    while isinstance(node, ast.BinOp):
+        node = node.left
+    func = node.func if isinstance(node, ast.Call) else None
+    while isinstance(func, ast.Attribute):
+        func = func.value
+    return isinstance(func, ast.Name) and func.id in ("np", "numpy")
+
+
+def _array_like(text: str) -> bool:
+    """Code that makes one value per row (a list, `[a, b] * 4`, `np.arange(n) - 5`,
+    `list(range(n))`), not a single value: pl.lit would give every row the whole list."""
+    try:
+        node = ast.parse(text, mode="eval").body
+    except SyntaxError:
+        return False
+
+    def many(node: ast.AST) -> bool:
+        if isinstance(node, (ast.List, ast.Tuple, ast.ListComp, ast.GeneratorExp)):
+            return True
+        if isinstance(node, ast.BinOp):
+            return many(node.left) or many(node.right)
+        if isinstance(node, ast.UnaryOp):
+            return many(node.operand)
+        if isinstance(node, ast.Call):
+            func = node.func
+            if isinstance(func, ast.Name):
+                return func.id in ("list", "range", "sorted", "reversed", "tuple")
+            names = []
+            while isinstance(func, ast.Attribute):
+                names.append(func.attr)
+                func = func.value
+            return isinstance(func, ast.Name) and func.id in ("np", "numpy") \
+                and bool(set(names) & _ARRAY_MAKERS)
+        return False
+
+    return many(node)
 
 
 # calls whose pandas result can hold Interval values (bins without labels)
