@@ -539,6 +539,10 @@ NUMBER_COLUMNS = [
     pytest.param('df[["a", "b"]].sum(axis=1) * 2', id="row sum in arithmetic"),
     pytest.param('df[["a", "b", "k"]].count(axis=1)', id="row count of numbers and text with NaN and None"),
     pytest.param('df.count(axis="columns")', id="row count of the whole frame"),
+    pytest.param('df.sum(axis=1, numeric_only=True)', id="row sum numeric_only skips the text column"),
+    pytest.param('df.drop(columns=["p"]).mean(axis=1, numeric_only=True)', id="row mean numeric_only"),
+    pytest.param('df.drop(columns=["p"]).max(axis=1, numeric_only=True)', id="row max numeric_only"),
+    pytest.param('df.count(axis=1, numeric_only=True)', id="row count numeric_only"),
     pytest.param('df[["a", "b"]].sum(axis=1) / df[["a", "b"]].count(axis=1)', id="row sum over row count"),
 ]
 

@@ -823,8 +823,11 @@ def frame_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
     missing max, min and mean; sum(min_count=k) is missing where fewer than k values are
     present; a sum of True/False columns counts them (Int64, as pandas' int64); count(axis=1)
     counts the present values of columns of any type (Int64).
+    numeric_only=True reads the number and True/False columns, when every column's type is
+    known.
     Caveats: per-column totals (axis=0: pandas gives a Series indexed by column name),
-    skipna=False, numeric_only and text or date columns are TODOs. Without the column types,
+    skipna=False, text or date columns (and True/False ones but for sum and count) and
+    numeric_only=True with a column of unknown type are TODOs. Without the column types,
     an integer column holding missing values is float in pandas (3.0 where Polars writes 3)
     (0.95).
     """
@@ -839,14 +842,8 @@ def frame_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported(f"a {call.name} per column (axis=0)")
     if not call.const("skipna", None, True, kinds=(bool,)):
         raise Unsupported("skipna=False")
-    if call.const("numeric_only", None, False, kinds=(bool,)):
-        raise Unsupported("numeric_only=True")
     min_count = call.const("min_count", None, 0, kinds=(int,)) if call.name == "sum" else 0
-    if frame.columns is None or not frame.columns:
-        raise Unsupported("the frame's columns are not known")
-    if frame.index:
-        raise Unsupported("a frame with an index of its own")
-    columns = [column_of(frame, c) for c in frame.columns]
+    columns = _row_columns(call, frame)
     kinds = {c.dtype for c in columns}
     allowed = {None, "int", "float", "bool"} if call.name == "sum" else {None, "int", "float"}
     if not kinds <= allowed:
@@ -876,14 +873,25 @@ def _row_count(call: PandasCall, frame: Frame, ctx: RuleContext) -> Value:
     ctx.reject_unknown(call, "axis", "numeric_only")
     if call.const("axis", None, 0, kinds=(int, str)) not in (1, "columns"):
         raise Unsupported("a count per column (axis=0)")
-    if call.const("numeric_only", None, False, kinds=(bool,)):
-        raise Unsupported("numeric_only=True")
-    if frame.columns is None or not frame.columns:
-        raise Unsupported("the frame's columns are not known")
-    if frame.index:
-        raise Unsupported("a frame with an index of its own")
-    columns = [column_of(frame, c) for c in frame.columns]
+    columns = _row_columns(call, frame)
     present = [c.code.method("is_not_null") for c in columns]
     code = emit.pl("sum_horizontal", *present).method("cast", emit.atom("pl.Int64"))
     base = Column(emit.pl("lit", None), frame=frame, name=None)
     return derived_column(base, code, dtype="int", name=None, others=columns)
+
+
+def _row_columns(call: PandasCall, frame: Frame) -> list[Column]:
+    """The columns a row-wise reduction reads: all of them, or the numbers and True/False
+    columns with numeric_only=True (which needs every column's type)."""
+    if frame.columns is None or not frame.columns:
+        raise Unsupported("the frame's columns are not known")
+    if frame.index:
+        raise Unsupported("a frame with an index of its own")
+    names = list(frame.columns)
+    if call.const("numeric_only", None, False, kinds=(bool,)):
+        if any(frame.dtype(c) is None for c in names):
+            raise Unsupported("numeric_only=True where porter does not know every column's type")
+        names = [c for c in names if frame.dtype(c) in ("int", "float", "bool")]
+        if not names:
+            raise Unsupported("numeric_only=True on a frame without number columns")
+    return [column_of(frame, c) for c in names]
