@@ -543,6 +543,8 @@ NUMBER_COLUMNS = [
     pytest.param('df.drop(columns=["p"]).mean(axis=1, numeric_only=True)', id="row mean numeric_only"),
     pytest.param('df.drop(columns=["p"]).max(axis=1, numeric_only=True)', id="row max numeric_only"),
     pytest.param('df.count(axis=1, numeric_only=True)', id="row count numeric_only"),
+    pytest.param('df[["a", "b"]].mean(1)', id="row mean with the axis given by position"),
+    pytest.param('df[["a", "b"]].count(1)', id="row count with the axis given by position"),
     pytest.param('df[["a", "b"]].sum(axis=1) / df[["a", "b"]].count(axis=1)', id="row sum over row count"),
 ]
 

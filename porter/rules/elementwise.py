@@ -836,8 +836,8 @@ def frame_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
     if call.name == "count":
         return _row_count(call, frame, ctx)
     known = ["axis", "skipna", "numeric_only"] + (["min_count"] if call.name == "sum" else [])
-    ctx.reject_unknown(call, *known)
-    axis = call.const("axis", None, 0, kinds=(int, str))
+    ctx.reject_unknown(call, *known, positional=1)
+    axis = call.const("axis", 0, 0, kinds=(int, str))
     if axis not in (1, "columns"):
         raise Unsupported(f"a {call.name} per column (axis=0)")
     if not call.const("skipna", None, True, kinds=(bool,)):
@@ -870,8 +870,8 @@ def frame_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 def _row_count(call: PandasCall, frame: Frame, ctx: RuleContext) -> Value:
-    ctx.reject_unknown(call, "axis", "numeric_only")
-    if call.const("axis", None, 0, kinds=(int, str)) not in (1, "columns"):
+    ctx.reject_unknown(call, "axis", "numeric_only", positional=1)
+    if call.const("axis", 0, 0, kinds=(int, str)) not in (1, "columns"):
         raise Unsupported("a count per column (axis=0)")
     columns = _row_columns(call, frame)
     present = [c.code.method("is_not_null") for c in columns]
