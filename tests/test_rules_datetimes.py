@@ -718,3 +718,18 @@ def test_to_timedelta_of_a_float_column_lowers_confidence() -> None:
 def test_known_difference_to_timedelta_below_a_microsecond() -> None:
     differential(HEAD + 'df = pd.DataFrame({"f": [1 / 3, 1.0]})\n'
                  'df["d"] = pd.to_timedelta(df["f"], unit="D")\n', "df")
+
+
+def test_a_duration_divided_by_a_numpy_timedelta_matches_pandas() -> None:
+    # np.timedelta64(1, "h") had been left as a numpy value inside the Polars expression
+    # (pandas_div(d, np.timedelta64(...)) raised: + not allowed on i32 and duration)
+    differential('''
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"a": ["2024-01-01 10:00", "2024-01-02 00:00", None, "2024-02-29 23:59"]})
+df["a"] = pd.to_datetime(df["a"], format="%Y-%m-%d %H:%M")
+d = df["a"] - df["a"].min()
+df["h"] = d / np.timedelta64(1, "h")
+df["w"] = d / np.timedelta64(1, "W")
+result = df
+''')

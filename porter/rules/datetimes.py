@@ -408,6 +408,24 @@ def timedelta(call: PandasCall, ctx: RuleContext) -> Value:
     return timedelta_scalar(sum(_whole_us(n, _KEYWORDS[k], ctx) for k, n in parts.items()), ctx)
 
 
+_NUMPY_UNITS = {"W": "W", "D": "D", "h": "h", "m": "m", "s": "s", "ms": "ms", "us": "us"}
+
+
+@rule("np.timedelta64")
+def numpy_timedelta(call: PandasCall, ctx: RuleContext) -> Value:
+    """np.timedelta64(1, "h") -> pl.duration(hours=1) inside expressions, as pd.Timedelta.
+
+    Handles: a whole number and one of numpy's units W, D, h, m (minutes), s, ms, us.
+    Caveats: months and years ("M", "Y": not a fixed length), nanoseconds and no unit are TODOs.
+    """
+    ctx.reject_unknown(call, positional=2)
+    value = call.const("value", 0, kinds=(int,))
+    unit = call.const("unit", 1, None, kinds=(str,))
+    if unit not in _NUMPY_UNITS:
+        raise ctx.todo(f"numpy unit {unit!r} (porter reads {', '.join(_NUMPY_UNITS)})")
+    return timedelta_scalar(_whole_us(value, _NUMPY_UNITS[unit], ctx), ctx)
+
+
 def _value_us(call: PandasCall, ctx: RuleContext) -> int:
     """The `value` (and `unit`) argument of pd.Timedelta / pd.to_timedelta in microseconds."""
     value = call.const("value" if call.name == "Timedelta" else "arg", 0)

@@ -399,7 +399,8 @@ class Evaluator:
             return self.generic(node)
         if isinstance(func, Module) and func.qualname in _PANDAS_SETTINGS:
             return self.generic(node)  # display settings: pandas still prints what is left to it
-        if isinstance(func, Module) and func.qualname.startswith("numpy."):
+        if isinstance(func, Module) and func.qualname.startswith("numpy.") \
+                and func.qualname not in _NUMPY_SCALARS:
             args = self.call_args(node)
             if args is None or not any(is_pandas(v) for v in (*args[0], *args[1].values())):
                 return self.generic(node)
@@ -929,6 +930,10 @@ def _isocalendar_call(node: cst.BaseExpression) -> bool:
     return isinstance(node, cst.Call) and not node.args \
         and isinstance(node.func, cst.Attribute) and node.func.attr.value == "isocalendar" \
         and isinstance(node.func.value, cst.Attribute) and node.func.value.attr.value == "dt"
+
+
+# numpy scalars porter reads even without pandas values in the call (np.timedelta64(1, "h"))
+_NUMPY_SCALARS = frozenset({"numpy.timedelta64"})
 
 
 def _module_key(qualname: str) -> str:
