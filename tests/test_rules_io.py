@@ -715,12 +715,17 @@ def test_to_csv_leaves_integers_alone_where_the_script_makes_nullable_ones(
         (data / "pandas" / "out.csv").read_text(encoding="utf-8"), result.converted_text
 
 
-def test_to_csv_of_two_level_columns_is_a_todo() -> None:
+def test_to_csv_of_two_level_columns_writes_pandas_header(data: Path,
+                                                         monkeypatch: pytest.MonkeyPatch) -> None:
     # pandas writes one header line per level (and one for the index name); porter's names
-    # are flat (v_sum), so writing them without a word would give another header
-    result = convert('import pandas as pd\n'
-                     'df = pd.DataFrame({"k": ["b", "a"], "v": [1.0, 2.0]})\n'
-                     's = df.groupby("k").agg({"v": ["sum", "mean"]})\n'
-                     's.to_csv("s.csv")\n')
-    assert any(s.key == "frame.to_csv" and s.status == "todo" and "two levels" in s.message
-               for s in result.sites)
+    # are flat (v_sum): it had written k,v_sum,v_mean without a word
+    source = ('import pandas as pd\n'
+              'df = pd.DataFrame({"k": ["b", "a", "b"], "v": [1.0, None, 3.5], "w": [5, 6, 7]})\n'
+              's = df.groupby("k").agg({"v": ["sum", "mean"], "w": "max"})\n'
+              's.to_csv("s.csv")\n'
+              's.to_csv("plain.csv", index=False)\n')
+    expected_dir, actual_dir, converted = written_by_both(source, data, monkeypatch)
+    for name in ("s.csv", "plain.csv"):
+        assert (actual_dir / name).read_text(encoding="utf-8") == \
+            (expected_dir / name).read_text(encoding="utf-8"), converted
+    assert "MultiIndex.from_tuples" in converted

@@ -367,10 +367,9 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     frame = _as_frame(call)
     if frame.column_pairs and call.const("header", None, True) is not False:
         # agg({"v": ["sum", "mean"]}): pandas' columns have two levels, written as a header of
-        # one line per level (and one for the index name); porter's are flat names
-        raise ctx.todo("the columns have two levels in pandas (an aggregation with a list per "
-                       "column), written as a header of several lines; porter's names are "
-                       "flat: name them (df.columns = [...]) before writing")
+        # one line per level (and one for the index name); porter's are flat names, so pandas
+        # writes the file with the levels put back
+        return _two_level_write(call, frame, target, ctx)
     columns = call.const("columns", None, None)
     if columns is not None:
         frame = select_columns(frame, frame.code.method("select", *frame.index, *columns),
@@ -429,6 +428,29 @@ def _header_names(frame: Frame, header: list[Any], ctx: RuleContext) -> dict[str
     if len(set(final)) != len(final):
         raise ctx.todo("header= repeats a name (or an index name): Polars writes each name once")
     return {old: new for old, new in zip(written, header) if old != new}
+
+
+def _two_level_write(call: PandasCall, frame: Frame, target: Value, ctx: RuleContext) -> Value:
+    """to_csv of a frame whose pandas columns are (column, function) pairs: handed to pandas
+    with those two levels, so the header is pandas' own."""
+    import libcst as cst
+
+    pandas = next((n for n in ("pd", "pandas") if getattr(ctx.evaluate(cst.Name(n), {}) if ctx.evaluate
+                                                          else None, "qualname", None) == "pandas"), None)
+    pairs = dict(frame.column_pairs)
+    names = [c for c in frame.columns if c not in frame.index] if frame.columns is not None else None
+    if pandas is None or names is None or any(c not in pairs for c in names) or call.args[1:] \
+            or set(call.kwargs) - {"path_or_buf", "index"}:
+        raise ctx.todo("the columns have two levels in pandas (an aggregation with a list per "
+                       "column), written as a header of several lines; porter's names are "
+                       "flat: name them (df.columns = [...]) before writing")
+    ctx.handover = True
+    ctx.lower("the columns have two levels in pandas, written as a header line per level: "
+              "handed to pandas with them for the write", 1.0)
+    levels = emit.call(f"{pandas}.MultiIndex.from_tuples", [pairs[c] for c in names])
+    kwargs = {} if call.const("index", None, True) else {"index": False}
+    code = handover.to_pandas(frame).method("set_axis", levels, axis=1)
+    return Scalar(code.method("to_csv", target.code, **kwargs))
 
 
 def written_index(frame: Frame, index: bool) -> Frame:
