@@ -402,7 +402,7 @@ def series_rank(call: PandasCall, ctx: RuleContext) -> Value:
     that each quotient is an exact division as in pandas; pandas' ranks are float64.
     """
     from porter.rules.io_options import DIVIDE_FUNCTION
-    from porter.rules.windows import RANK_METHODS
+    from porter.rules.windows import rank_code
     column = call.receiver
     assert isinstance(column, Column)
     ctx.reject_unknown(call, "axis", "method", "numeric_only", "na_option", "ascending", "pct",
@@ -415,16 +415,7 @@ def series_rank(call: PandasCall, ctx: RuleContext) -> Value:
     na_option = call.const("na_option", 3, "keep", kinds=(str,))
     ascending = call.const("ascending", 4, True, kinds=(bool,))
     pct = call.const("pct", 5, False, kinds=(bool,))
-    if method not in RANK_METHODS:
-        raise Unsupported(f"method={method!r}")
-    if na_option != "keep":
-        raise Unsupported(f"na_option={na_option!r} (missing values ranked first or last)")
-    if column.dtype in ("category", "enum"):
-        raise Unsupported("ranks of categories follow the order of the categories in pandas")
-    kwargs = {} if ascending else {"descending": True}
-    rank = column.code.method("rank", RANK_METHODS[method], **kwargs)
-    if method != "average":
-        rank = rank.method("cast", emit.atom("pl.Float64"))
+    rank = rank_code(column, method, ascending, na_option)
     if pct:
         # Polars divides by a single value through its reciprocal (one binary digit off
         # pandas' quotient): divided value by value

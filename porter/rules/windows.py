@@ -359,6 +359,20 @@ RANK_METHODS = {"average": "average", "min": "min", "max": "max", "first": "ordi
                 "dense": "dense"}
 
 
+def rank_code(column: Column, method: object, ascending: object, na_option: object) -> Code:
+    """pandas' rank as a Polars rank of the column's expression (float64, as pandas gives it);
+    Unsupported for the forms porter does not read."""
+    if method not in RANK_METHODS:
+        raise Unsupported(f"method={method!r}")
+    if na_option != "keep":
+        raise Unsupported(f"na_option={na_option!r} (missing values ranked first or last)")
+    if column.dtype in ("category", "enum"):
+        raise Unsupported("ranks of categories follow the order of the categories in pandas")
+    kwargs = {} if ascending else {"descending": True}
+    rank = column.code.method("rank", RANK_METHODS[method], **kwargs)  # type: ignore[index]
+    return rank if method == "average" else rank.method("cast", emit.atom("pl.Float64"))
+
+
 @rule("groupby.rank")
 def group_rank(call: PandasCall, ctx: RuleContext) -> Value:
     """df.groupby(keys)[col].rank(method, ascending, pct) -> .rank(method).over(keys) as floats.
@@ -374,16 +388,7 @@ def group_rank(call: PandasCall, ctx: RuleContext) -> Value:
     ascending = call.const("ascending", 1, True, kinds=(bool,))
     na_option = call.const("na_option", 2, "keep", kinds=(str,))
     pct = call.const("pct", 3, False, kinds=(bool,))
-    if method not in RANK_METHODS:
-        raise Unsupported(f"method={method!r}")
-    if na_option != "keep":
-        raise Unsupported(f"na_option={na_option!r} (missing values ranked first or last)")
-    if column.dtype in ("category", "enum"):
-        raise Unsupported("ranks of categories follow the order of the categories in pandas")
-    kwargs = {} if ascending else {"descending": True}
-    rank = column.code.method("rank", RANK_METHODS[method], **kwargs)
-    if method != "average":
-        rank = rank.method("cast", emit.atom("pl.Float64"))
+    rank = rank_code(column, method, ascending, na_option)
     if not pct:
         return derived_column(column, _window(grouped, rank), dtype="float")
     # the divisor as a window of its own: Polars divides a column by a single value as a
