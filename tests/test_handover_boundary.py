@@ -8,14 +8,13 @@ below is one a real script takes; the data is an invented harbour's cargo log.
 
 from __future__ import annotations
 
-import ast
 import textwrap
 from pathlib import Path
 
 import pytest
 
-from porter.api import OLDEST_PYTHON, convert_source
-from support import assert_same_value, differential, run
+from porter.api import convert_source
+from support import differential
 
 
 @pytest.fixture(autouse=True)
@@ -27,16 +26,8 @@ def cargo(tmp_path, monkeypatch):
 
 
 def both(source: str, *names: str) -> str:
-    source = textwrap.dedent(source)
-    result = convert_source(source)
-    ast.parse(result.converted_text, feature_version=OLDEST_PYTHON)
-    expected, actual = run(source), run(result.converted_text)
-    for name in names:
-        try:
-            assert_same_value(expected[name], actual[name])
-        except AssertionError as exc:
-            raise AssertionError(f"{name}: {exc}\n{result.converted_text}") from None
-    return result.converted_text
+    """The conversion's text, after its values `names` were checked against pandas'."""
+    return differential(source, *names).converted_text
 
 
 def test_a_todo_in_the_middle_of_a_pipeline_does_not_keep_the_rest_on_pandas():

@@ -6,13 +6,12 @@ conversion with Polars and compares the named variables.
 
 from __future__ import annotations
 
-import ast
 import textwrap
 
 import pytest
 
-from porter.api import OLDEST_PYTHON, convert_source
-from support import assert_same_value, run
+from porter.api import convert_source
+from support import differential
 
 # tons has missing values and a NaN-free float; names have stray spaces, case and unicode
 CARGO = ("berth,kind,tons,crates,skipper\nA,grain,5.0,3, ada lind\nB,timber,,2,BO ÅSTRÖM\n"
@@ -26,16 +25,8 @@ def cargo(tmp_path, monkeypatch):
 
 
 def both(source: str, *names: str) -> str:
-    source = textwrap.dedent(source)
-    result = convert_source(source)
-    ast.parse(result.converted_text, feature_version=OLDEST_PYTHON)
-    expected, actual = run(source), run(result.converted_text)
-    for name in names:
-        try:
-            assert_same_value(expected[name], actual[name])
-        except AssertionError as exc:
-            raise AssertionError(f"{name}: {exc}\n{result.converted_text}") from None
-    return result.converted_text
+    """The conversion's text, after its values `names` were checked against pandas'."""
+    return differential(source, *names).converted_text
 
 
 def test_a_function_of_a_column_becomes_a_function_of_an_expression():
