@@ -636,3 +636,17 @@ def test_groupby_any_all_of_read_booleans_with_missing_values(tmp_path, monkeypa
 
 def test_groupby_any_skipna_false_is_a_todo() -> None:
     check_todo(FRAME + 'r = df.groupby("shop")["qty"].any(skipna=False)\n', "groupby.any")
+
+
+def test_timestamp_attributes_of_the_latest_date() -> None:
+    # pandas gives a Timestamp; porter collects a Python datetime, which has no day_name() or
+    # quarter: they are written with the datetime's own methods (it had crashed)
+    differential('''
+import pandas as pd
+df = pd.DataFrame({"d": ["2024-02-29 10:00", None, "2023-12-31 23:59", "2024-07-01 00:00"]})
+df["d"] = pd.to_datetime(df["d"], format="%Y-%m-%d %H:%M")
+last = df["d"].max()
+first = df["d"].min()
+result = [last.day_name(), first.month_name(), last.quarter, first.quarter, last.dayofweek,
+          last.dayofyear, first.is_month_start, last.strftime("%Y-%m-%d")]
+''')

@@ -3,6 +3,8 @@ value_counts, unique, nunique, describe."""
 
 from __future__ import annotations
 
+from dataclasses import replace
+
 from dataclasses import dataclass, replace
 from typing import Any
 
@@ -360,6 +362,11 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         expr = agg_expr(code, how, "bool")  # Int64, as pandas' int64 (Polars' UInt32 wraps)
     else:
         expr = code.method(how)
+    if how in ("min", "max") and column.dtype == "datetime":
+        # a Python datetime where pandas gives a Timestamp: day_name(), quarter and the like
+        # are written with the datetime's own (evaluate.py); others still differ (lowered)
+        _nan_when_empty(column, how, expr, ctx)
+        return replace(scalar_of(column, expr), pytype="datetime")
     if how in NAN_WHEN_EMPTY:
         return scalar_of(column, expr, collected=_nan_when_empty(column, how, expr, ctx))
     # a count, or a sum of integers or booleans, is a Python int (stored as a column: Int64)
@@ -380,7 +387,8 @@ def _nan_when_empty(column: Column, how: str, expr: Code, ctx: RuleContext) -> C
         return expr.method("fill_null", emit.call("float", "nan"))
     if column.dtype == "datetime":
         ctx.lower(f"pandas' {how} of a datetime column is a pd.Timestamp, here a datetime."
-                  "datetime: Timestamp-only methods (day_name(), quarter, dayofweek, normalize(), "
+                  "datetime: porter writes day_name(), month_name(), quarter, dayofweek and "
+                  "dayofyear with its own methods; other Timestamp-only ones (normalize(), "
                   "to_period()) fail on it", 0.9)
     what = "an integer or boolean" if column.dtype in ("int", "bool") else \
         "an unknown-type" if column.dtype is None else f"a {column.dtype}"

@@ -314,6 +314,10 @@ class Evaluator:
                              node, "porter has no rule for this attribute")
         if isinstance(receiver, Scalar) and receiver.pytype == "list[str]":
             return self.column_names_attribute(receiver, name, node)
+        if isinstance(receiver, Scalar) and receiver.pytype == "datetime" and name in _TIMESTAMP_ONLY:
+            # pandas' Timestamp attribute on the Python datetime porter collects
+            return Opaque(Code(_TIMESTAMP_ONLY[name].format(x=receiver.code.wrapped(emit.ATOM))),
+                          sites=receiver.sites)
         if isinstance(receiver, Scalar) and receiver.pytype == "names.str" and name in pandas_names.STR:
             if f"frame.columns.str.{name}" in self.services.registry:
                 return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
@@ -382,6 +386,13 @@ class Evaluator:
 
     # -- calls ----------------------------------------------------------------------------------
     def _eval_Call(self, node: cst.Call) -> Value:
+        if isinstance(node.func, cst.Attribute) and node.func.attr.value in _TIMESTAMP_NAMES \
+                and not node.args:
+            receiver = self.eval(node.func.value)
+            if isinstance(receiver, Scalar) and receiver.pytype == "datetime":
+                # Timestamp.day_name() / month_name(): the English names, as strftime gives them
+                pattern = _TIMESTAMP_NAMES[node.func.attr.value]
+                return Opaque(receiver.code.method("strftime", pattern), sites=receiver.sites)
         func = self.eval(node.func)
         if isinstance(func, Opaque) and not func.sites and isinstance(node.func, cst.Name):
             name = node.func.value
@@ -931,6 +942,15 @@ def _isocalendar_call(node: cst.BaseExpression) -> bool:
         and isinstance(node.func, cst.Attribute) and node.func.attr.value == "isocalendar" \
         and isinstance(node.func.value, cst.Attribute) and node.func.value.attr.value == "dt"
 
+
+# pandas Timestamp attributes a Python datetime lacks, written with the datetime's own
+_TIMESTAMP_ONLY = {
+    "quarter": "(({x}.month - 1) // 3 + 1)", "dayofweek": "{x}.weekday()",
+    "day_of_week": "{x}.weekday()", "weekday": "{x}.weekday()",
+    "dayofyear": "{x}.timetuple().tm_yday", "day_of_year": "{x}.timetuple().tm_yday",
+    "is_month_start": "({x}.day == 1)",
+}
+_TIMESTAMP_NAMES = {"day_name": "%A", "month_name": "%B"}
 
 # numpy scalars porter reads even without pandas values in the call (np.timedelta64(1, "h"))
 _NUMPY_SCALARS = frozenset({"numpy.timedelta64"})
