@@ -77,12 +77,13 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
         # return a Series, which pandas aligns on the index and pl.lit cannot hold
         raise Unsupported(f"`{_short(value.code.text)}` is computed from frame data by code porter "
                           "hands to pandas, and may be a Series: the statement stays pandas")
-    if isinstance(value, Opaque) and (value.pytype in ("list", "tuple") or _array_like(value.code.text)):
+    per_row = _per_row(value.code.text) if isinstance(value, Opaque) else None
+    if isinstance(value, Opaque) and (value.pytype in ("list", "tuple") or per_row):
         # a list is placed by position, one value per row (pandas raises on another length,
         # and so does Polars); Polars infers the type from the Python values
         ctx.lower(f"`{value.code.text}` is a list placed by position; Polars infers its type "
                   "from the Python values (a whole number beside a float is a float in both)", 0.95)
-        if _numpy_made(value.code.text):
+        if per_row == "numpy":
             return emit.call("pl.Series", value.code, nan_to_null=True), None
         # nan_to_null reads numpy arrays only: a NaN in a list (np.nan) is made missing here,
         # as pandas holds it (x != x only for NaN)
@@ -142,27 +143,23 @@ _ARRAY_MAKERS = {"arange", "array", "asarray", "linspace", "repeat", "tile", "ze
                  "full", "empty", "concatenate", "cumsum", "random", "where", "select"}
 
 
-def _numpy_made(text: str) -> bool:
-    """Code that is one call of a numpy function (np.arange(n) - 5 is not: a BinOp)."""
+def _per_row(text: str) -> str | None:
+    """Code that makes one value per row, not a single value (pl.lit would give every row the
+    whole list): "numpy" for a numpy array (`np.arange(n) - 5`), "list" for Python values (`[a, b]
+    * 4`, `list(range(n))`); None otherwise."""
     try:
         node = ast.parse(text, mode="eval").body
     except SyntaxError:
-        return False
-    while isinstance(node, ast.BinOp):
-        node = node.left
-    func = node.func if isinstance(node, ast.Call) else None
-    while isinstance(func, ast.Attribute):
-        func = func.value
-    return isinstance(func, ast.Name) and func.id in ("np", "numpy")
+        return None
 
-
-def _array_like(text: str) -> bool:
-    """Code that makes one value per row (a list, `[a, b] * 4`, `np.arange(n) - 5`,
-    `list(range(n))`), not a single value: pl.lit would give every row the whole list."""
-    try:
-        node = ast.parse(text, mode="eval").body
-    except SyntaxError:
-        return False
+    def numpy_call(node: ast.AST) -> bool:
+        func = node.func if isinstance(node, ast.Call) else None
+        names = []
+        while isinstance(func, ast.Attribute):
+            names.append(func.attr)
+            func = func.value
+        return isinstance(func, ast.Name) and func.id in ("np", "numpy") \
+            and bool(set(names) & _ARRAY_MAKERS)
 
     def many(node: ast.AST) -> bool:
         if isinstance(node, (ast.List, ast.Tuple, ast.ListComp, ast.GeneratorExp)):
@@ -171,19 +168,15 @@ def _array_like(text: str) -> bool:
             return many(node.left) or many(node.right)
         if isinstance(node, ast.UnaryOp):
             return many(node.operand)
-        if isinstance(node, ast.Call):
-            func = node.func
-            if isinstance(func, ast.Name):
-                return func.id in ("list", "range", "sorted", "reversed", "tuple")
-            names = []
-            while isinstance(func, ast.Attribute):
-                names.append(func.attr)
-                func = func.value
-            return isinstance(func, ast.Name) and func.id in ("np", "numpy") \
-                and bool(set(names) & _ARRAY_MAKERS)
-        return False
+        if isinstance(node, ast.Call) and isinstance(node.func, ast.Name):
+            return node.func.id in ("list", "range", "sorted", "reversed", "tuple")
+        return numpy_call(node)
 
-    return many(node)
+    if not many(node):
+        return None
+    while isinstance(node, ast.BinOp):  # np.arange(n) - 5 is still the numpy array's
+        node = node.left
+    return "numpy" if numpy_call(node) else "list"
 
 
 # calls whose pandas result can hold Interval values (bins without labels)

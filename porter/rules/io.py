@@ -435,8 +435,11 @@ def _two_level_write(call: PandasCall, frame: Frame, target: Value, ctx: RuleCon
     with those two levels, so the header is pandas' own."""
     import libcst as cst
 
-    pandas = next((n for n in ("pd", "pandas") if getattr(ctx.evaluate(cst.Name(n), {}) if ctx.evaluate
-                                                          else None, "qualname", None) == "pandas"), None)
+    def is_pandas(name: str) -> bool:  # the name the script binds pandas to
+        value = ctx.evaluate(cst.Name(name), {}) if ctx.evaluate is not None else None
+        return isinstance(value, Module) and value.qualname == "pandas"
+
+    pandas = next((n for n in ("pd", "pandas") if is_pandas(n)), None)
     pairs = dict(frame.column_pairs)
     names = [c for c in frame.columns if c not in frame.index] if frame.columns is not None else None
     if pandas is None or names is None or any(c not in pairs for c in names) or call.args[1:] \
