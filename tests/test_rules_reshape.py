@@ -1,5 +1,5 @@
-"""Rule cases and differential checks for porter/rules/reshape.py (crosstab, melt, get_dummies,
-qcut).
+"""Rule cases and differential checks for porter/rules/reshape.py (crosstab, unstack, melt,
+get_dummies, qcut).
 
 pandas is the reference implementation: every differential check runs the snippet with pandas
 and its conversion with Polars and compares what they computed (pandas' index becomes columns).
@@ -152,6 +152,80 @@ def test_crosstab_left_to_pandas_keeps_its_index() -> None:
 
 
 # -- melt ---------------------------------------------------------------------------------------
+
+# -- unstack ------------------------------------------------------------------------------------
+
+def test_unstack_ports_to_a_pivot_of_the_groups() -> None:
+    text = check_ports(FRAME + 'result = df.groupby(["shop", "kind"])["n"].sum().unstack()\n',
+                       '.pivot(on="kind", index="shop", values="n")')
+    assert '.pipe(pandas_unstacked, "shop")' in text and "def pandas_unstacked(" in text
+
+
+def _kinds(frame) -> list[str]:
+    """'f', 'i' or 'o' per column: what to_csv and print write (6 or 6.0) follows it."""
+    import polars as pl
+    if isinstance(frame, pl.LazyFrame):
+        frame = frame.collect()
+    if isinstance(frame, pl.DataFrame):
+        return ["f" if d.is_float() else "i" if d.is_integer() else "o" for d in frame.dtypes]
+    return [d.kind if d.kind in "fi" else "o" for d in frame.dtypes]
+
+
+@pytest.mark.parametrize("call", [
+    # a combination no row has (shop c, kind q): every cell float, as pandas makes it
+    'df.groupby(["shop", "kind"])["n"].sum().unstack()',
+    'df.groupby(["shop", "kind"]).size().unstack()',
+    'df.groupby(["shop", "kind"])["n"].count().unstack(fill_value=0)',
+    'df.groupby(["shop", "kind"])["qty"].mean().unstack()',
+    'df.groupby(["shop", "kind"])["qty"].max().unstack(level=0)',
+    'df.groupby(["shop", "kind"])["n"].sum().unstack("shop", fill_value=-1)',
+    'df.groupby(["shop", "kind", "size"])["n"].sum().unstack()',
+    'df.groupby(["shop", "kind", "size"])["n"].sum().unstack(1)',
+    'df.groupby(["kind", "size"])["n"].sum().unstack()',
+    'df.groupby(["shop", "kind"]).agg(total=("n", "sum"), top=("qty", "max"))["total"].unstack()',
+    '(df.groupby(["shop", "kind"])["n"].sum() * 2).unstack(fill_value=0)',
+    # every combination present: the integers stay
+    'df[df["shop"] == "a"].groupby(["shop", "kind"])["n"].sum().unstack()',
+    'df[df["shop"] == "zzz"].groupby(["shop", "kind"])["n"].sum().unstack()',
+])
+def test_unstack_matches_pandas(call: str) -> None:
+    source = FRAME + f"result = {call}.reset_index()\n"
+    result = differential(source)
+    assert not result.todos, result.converted_text
+    from support import run
+    assert _kinds(run(source)["result"]) == _kinds(run(result.converted_text)["result"]), \
+        result.converted_text
+
+
+def test_unstack_of_a_series_kept_in_a_name() -> None:
+    result = differential(FRAME + 'g = df.groupby(["shop", "kind"])["n"].sum()\n'
+                                  'result = g.unstack(fill_value=0).reset_index()\n')
+    assert not result.todos, result.converted_text
+
+
+@pytest.mark.parametrize("call,reason", [
+    ('df.groupby(["shop", "kind"], sort=False)["n"].sum().unstack()', "sorted result"),
+    ('df.groupby(["shop", "kind"])["n"].sum().sort_values().unstack()', "sorted result"),
+    ('df.groupby(["shop", "kind"], dropna=False)["n"].sum().unstack()', "sorted result"),
+    ('df.groupby(["shop", "kind"])["kind"].first().unstack()', "values of type"),
+    ('df.groupby("shop")["n"].sum().unstack()', "one level"),
+])
+def test_unstack_todo(call: str, reason: str) -> None:
+    result = convert(FRAME + f"result = {call}\n")
+    todo = next(s for s in result.todos if s.key == "series.unstack")
+    assert reason in todo.message
+
+
+@pytest.mark.parametrize("call", [
+    'df.groupby(["shop", "kind"])["n"].sum().sort_values().unstack()',
+    'df.groupby(["shop", "kind"], sort=False)["n"].sum().unstack()',
+    'df.groupby(["shop", "kind"], sort=False)[["n", "qty"]].sum().unstack()',
+    'df.groupby(["shop", "kind"], sort=False, dropna=False)["qty"].max().unstack()',
+])
+def test_unstack_left_to_pandas_keeps_pandas_layout(call: str) -> None:
+    # the hand-over puts the keys back as labels: pandas lays the table out itself
+    differential(FRAME + f"result = {call}.reset_index()\n")
+
 
 def test_melt_ports_to_unpivot_in_pandas_order() -> None:
     check_ports(FRAME + 'result = df.melt(id_vars="shop", value_vars=["qty", "n"])\n',

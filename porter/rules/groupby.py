@@ -15,11 +15,11 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.elementwise import body_expression
-from porter.rules.io_options import DIVIDE_FUNCTION
+from porter.rules.io_options import DIVIDE_FUNCTION, UNSTACKED_FUNCTION
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_names, grouping_code,
 )
-from porter.translate.values import Column, Frame, Grouped, Module, Opaque, Scalar, Value
+from porter.translate.values import Column, Frame, Grouped, Module, Opaque, Scalar, Value, fresh_token
 
 AGGREGATIONS = ("sum", "mean", "median", "min", "max", "std", "var", "count", "nunique",
                 "first", "last", "size", "any", "all")
@@ -167,8 +167,11 @@ def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleCo
     index = tuple(keys) if grouped.as_index else ()
     known = [(k, grouped.frame.dtype(k)) for k in keys]
     known += list(zip(names, dtypes or [None] * len(names)))
+    rows = fresh_token()
     frame = Frame(code, columns=columns, index=index, labels_intact=not grouped.as_index,
-                  dtypes=tuple((c, t) for c, t in known if t is not None))
+                  dtypes=tuple((c, t) for c, t in known if t is not None), rows=rows,
+                  grouped_rows=rows if grouped.sort and grouped.dropna and index else None,
+                  levels_as_met=not grouped.sort and len(index) > 1)
     if is_series and grouped.as_index:
         name = series_name
         return Column(emit.col(name if name is not None else names[0]), frame=frame,
@@ -532,10 +535,12 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: rows with a missing key are dropped and groups whose mean / median / min / max is
     missing too, as pandas drops them; the new columns come in the order of their values
     (sorted before the pivot: Polars names them as text) and the rows sorted by the index
-    keys; fill_value fills the missing cells; the index keys stay label columns.
-    Caveats: one values column and one columns key; sum, count, min and max without a
-    fill_value are TODOs (pandas turns the cells float when one is missing); margins,
-    dropna=False, sort=False and lists or dicts of functions are TODOs.
+    keys; fill_value fills the missing cells; without it, sum, count, min and max of numbers
+    turn every cell float when one is missing, as pandas does (pandas_unstacked decides on the
+    pivoted table); the index keys stay label columns.
+    Caveats: one values column and one columns key; sum, min and max of a column not known to
+    be numbers without fill_value, margins, dropna=False, sort=False and lists or dicts of
+    functions are TODOs.
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
@@ -562,24 +567,31 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     fill = call.const("fill_value", 4, None)
     if fill is not None and (isinstance(fill, bool) or not isinstance(fill, (int, float))):
         raise Unsupported("a fill_value that is not a number")
-    if fill is None and how not in ("mean", "median"):
-        raise Unsupported(f"{how} without fill_value: pandas makes every cell float when one "
-                          "is missing, which depends on the data")
+    value_dtype = frame.dtype(values)
+    # without fill_value, pandas turns every cell float when one combination has no value:
+    # decided on the pivoted table, as pandas decides it (pandas_unstacked)
+    float_when_missing = fill is None and how not in ("mean", "median")
+    if float_when_missing and how != "count" and value_dtype not in ("int", "float", "bool"):
+        raise Unsupported(f"{how} without fill_value of a column not known to be numbers: "
+                          "pandas makes every cell float when one is missing")
     known = frame.columns
     absent = [c for c in (*keys, columns, values) if known is not None and c not in known]
     if absent:
         raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
     groups = [*keys, columns]
     code = frame.code.method("drop_nulls", groups).method("group_by", groups).method(
-        "agg", agg_expr(emit.col(values), how, frame.dtype(values)))
+        "agg", agg_expr(emit.col(values), how, value_dtype))
     if how in ("mean", "median", "min", "max"):
         code = code.method("drop_nulls", values)  # pandas drops a group whose value is missing
     # the new columns appear in the order the pivot meets their values: sorted first
     code = code.method("sort", columns).method("collect").method(
         "pivot", on=columns, index=keys[0] if len(keys) == 1 else keys, values=values)
-    code = code.method("sort", keys[0] if len(keys) == 1 else keys)
+    index = keys[0] if len(keys) == 1 else keys
+    code = code.method("sort", index)
     if fill is not None:
         code = code.method("fill_null", fill)
+    elif float_when_missing and value_dtype != "float":
+        code = code.method("pipe", emit.atom(UNSTACKED_FUNCTION), index)
     ctx.lower("the new columns are named by their values as text (pandas keeps the values)", 0.95)
     return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False)
 

@@ -69,6 +69,18 @@ def pandas_quantile(column, q):
     return pl.when(t >= 0.5).then(b - (b - a) * (1 - t)).otherwise(a + (b - a) * t)
 """
 
+# A function, defined once at the top of a converted script, that gives a pivoted table the
+# types pandas' unstack gives it: one missing cell anywhere makes the whole block float.
+UNSTACKED_FUNCTION = "pandas_unstacked"
+UNSTACKED_DEFINITION = """\
+def pandas_unstacked(table, keys):
+    \"\"\"The pivoted table with pandas' cell types: pandas turns every cell float when one
+    combination of keys has no value (its NaN), and keeps integers when none is missing.\"\"\"
+    if any(column.has_nulls() for column in table.drop(keys).iter_columns()):
+        return table.with_columns(pl.exclude(keys).cast(pl.Float64))
+    return table
+"""
+
 # dtype spellings in read_csv(dtype=...) / astype(...) → (Polars dtype code, porter dtype name)
 DTYPES: dict[str, tuple[str, str]] = {
     "str": ("pl.String", "str"), "string": ("pl.String", "str"), "object": ("pl.String", "str"),

@@ -1,4 +1,4 @@
-"""Reshaping: pd.crosstab, melt / pd.melt, pd.get_dummies, pd.qcut.
+"""Reshaping: pd.crosstab, Series.unstack, melt / pd.melt, pd.get_dummies, pd.qcut.
 
 A crosstab's columns and a get_dummies' columns are the data's own values, which a lazy plan
 cannot list before it runs: like pivot_table, those rules collect the frame once and build the
@@ -16,7 +16,7 @@ from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.groupby import agg_expr, how_name
 from porter.rules.io import polars_dtype
-from porter.rules.io_options import DIVIDE_FUNCTION, QUANTILE_FUNCTION
+from porter.rules.io_options import DIVIDE_FUNCTION, QUANTILE_FUNCTION, UNSTACKED_FUNCTION
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, check_same_rows, column_names, derived_column,
 )
@@ -223,6 +223,79 @@ def _margins(code: Code, key: str, name: str, normalize: str | None) -> Code:
         code = code.method("with_columns", emit.call(
             DIVIDE_FUNCTION, cells, cells.method("last"))).method("head", -1)
     return code
+
+
+# -- unstack ------------------------------------------------------------------------------------
+
+@rule("series.unstack")
+def unstack(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.unstack(level=-1, fill_value=None) of a groupby result on two or more keys -> the
+    collected Series pivoted on that key, the other keys as the index.
+
+    Handles: the new columns in the order of the key's values and the rows in the order of the
+    other keys (pandas lays the table out by its sorted labels); fill_value fills a
+    combination no row has; without it, every cell float when one is missing, as pandas
+    (pandas_unstacked decides on the pivoted table); level as a position or a key name.
+    Caveats: only the Series a groupby(sort=True) made, before any filter or sort (pandas
+    follows the order its labels were made in); text, True/False, date and unknown values
+    (pandas makes an object column) and True/False or date column keys are TODOs. The new
+    columns are named by their values as text (0.95 unless the key is text).
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "level", "fill_value", "sort", positional=2)
+    frame = column.frame
+    keys = list(frame.index)
+    if len(keys) < 2:
+        raise Unsupported("a Series with one level of labels (pandas makes a Series of the "
+                          "column labels)")
+    if frame.grouped_rows != frame.rows:
+        raise Unsupported("the Series is not the sorted result of a groupby (pandas lays the "
+                          "table out in the order its labels were made)")
+    if call.const("sort", None, True) is not True:
+        raise Unsupported("sort=False")
+    level = call.const("level", 0, -1, kinds=(int, str))
+    if isinstance(level, str):
+        if level not in keys:
+            raise Unsupported(f"level {level!r} is not a key (pandas raises)")
+        on = level
+    elif -len(keys) <= level < len(keys):
+        on = keys[level]
+    else:
+        raise Unsupported(f"level {level} out of range (pandas raises)")
+    if frame.dtype(on) in ("bool", "datetime", "date") or frame.dtype(on) is None:
+        raise Unsupported(f"a key of type {frame.dtype(on) or 'unknown'}: Polars names the new "
+                          "columns differently from pandas' labels")
+    if frame.dtype(on) not in ("str", "enum"):
+        ctx.lower("the new columns are named by their values as text (pandas keeps the values)",
+                  0.95)
+    fill = call.const("fill_value", 1, None)
+    if fill is not None and (isinstance(fill, bool) or not isinstance(fill, (int, float))):
+        raise Unsupported("a fill_value that is not a number")
+    if column.dtype not in ("int", "float"):
+        raise Unsupported(f"values of type {column.dtype or 'unknown'}: pandas makes an object "
+                          "column when a combination is missing")
+    rest = [k for k in keys if k != on]
+    # the values keep the name of the column they are, where they are one (g.size(): "size")
+    plain = next((c for c in frame.columns or () if column.code.text == emit.col(c).text), None)
+    values = plain or (column.name if column.name is not None else "values")
+    while values in keys:
+        values = f"_{values}"
+    index = rest[0] if len(rest) == 1 else rest
+    code = frame.code
+    if frame.columns != (*keys, values) or plain != values:
+        code = code.method("select", *(emit.col(k) for k in keys),
+                           column.code if plain == values else column.code.method("alias", values))
+    # the new columns appear in the order the pivot meets their values: sorted first
+    code = code.method("sort", on).method("collect").method(
+        "pivot", on=on, index=index, values=values).method("sort", index)
+    if fill is not None:
+        code = code.method("fill_null", fill)
+    elif column.dtype == "int":
+        code = code.method("pipe", emit.atom(UNSTACKED_FUNCTION), index)
+    dtypes = tuple((k, frame.dtype(k)) for k in rest if frame.dtype(k) is not None)
+    return Frame(code.method("lazy"), columns=None, index=tuple(rest), dtypes=dtypes,
+                 labels_intact=False)
 
 
 # -- melt ---------------------------------------------------------------------------------------

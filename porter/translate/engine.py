@@ -1004,9 +1004,17 @@ class _Walker:
             else:
                 code = handover.series_frame(value)
                 column = value.name if value.name is not None else "0"
-                frame = Frame(emit.atom(name), columns=(*value.frame.index, column),
+                known = (*value.frame.index, column)
+                rows = fresh_token()
+                # the same rows, in the same order, as the frame the Series came from
+                frame = Frame(emit.atom(name), columns=known, rows=rows,
                               index=value.frame.index, labels_intact=value.frame.labels_intact,
-                              binding=self.statement_key)
+                              binding=self.statement_key,
+                              dtypes=tuple((c, t) for c, t in value.frame.dtypes
+                                           if c in value.frame.index)
+                              + (((column, value.dtype),) if value.dtype else ()),
+                              grouped_rows=rows if value.frame.grouped_rows == value.frame.rows
+                              else None, levels_as_met=value.frame.levels_as_met)
                 env[name] = Column(emit.col(column), frame=frame, name=value.name,
                                    dtype=value.dtype, refs=frozenset({column}),
                                    binding=self.statement_key)

@@ -52,6 +52,17 @@ def collected(value: Value) -> Code:
     return value.code
 
 
+def _labels(code: Code, frame: Frame) -> Code:
+    """The pandas frame `code` with the frame's index columns made its index again."""
+    keys = emit.names_arg(frame.index)
+    if frame.levels_as_met:
+        # set_index sorts the levels; pandas' groupby(sort=False) made them in the order it
+        # met the keys (unstack lays them out so): grouping the one row of each combination
+        # again, in pandas, makes them so, and first() of one row is that row's value
+        return code.method("groupby", keys, sort=False, dropna=False).method("first")
+    return code.method("set_index", keys)
+
+
 def to_pandas(value: Value) -> Code:
     """The pandas object this value stands for (index restored where porter tracks one; dates,
     missing True/False values and categories as pandas holds them)."""
@@ -68,7 +79,7 @@ def to_pandas(value: Value) -> Code:
             code = code.method("astype", {c: "category" for c in categories})
         code = _as_pandas_made_them(code, value.dtypes, value.columns)
         if value.index:
-            code = code.method("set_index", emit.names_arg(value.index))
+            code = _labels(code, value)
         labels = [c for c in value.number_labels if c not in value.index
                   and (value.columns is None or c in value.columns)]
         if labels:  # pandas' own labels 0, 1, … are integers
@@ -79,8 +90,8 @@ def to_pandas(value: Value) -> Code:
             return value.pandas  # type: ignore[attr-defined]  # pandas makes it again (rules/windows.py)
         if value.frame.index:
             name = value.name if value.name is not None else "0"
-            code = (series_frame(value).method("collect").method("to_pandas")
-                    .method("set_index", emit.names_arg(value.frame.index)).index(name))
+            code = _labels(series_frame(value).method("collect").method("to_pandas"),
+                           value.frame).index(name)
         elif value.dtype == "category":  # categories sorted, as astype("category") made them
             code = (series_frame(value).method("collect").method("to_series")
                     .method("cast", emit.atom("pl.String")).method("to_pandas").method("astype", "category"))

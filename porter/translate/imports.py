@@ -9,6 +9,7 @@ from porter.rules.io_options import (
     CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION, CSV_INTS_CONSTANT, CSV_INTS_DEFINITION,
     DIVIDE_DEFINITION, DIVIDE_FUNCTION,
     NA_CONSTANT, PANDAS_NA_TOKENS, QUANTILE_DEFINITION, QUANTILE_FUNCTION,
+    UNSTACKED_DEFINITION, UNSTACKED_FUNCTION,
 )
 
 
@@ -85,7 +86,8 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
         if constant in used and not _defines(module, constant):
             body = _insert_after_imports(body, _constant(definition))
     for function, definition in ((DIVIDE_FUNCTION, DIVIDE_DEFINITION),
-                                 (QUANTILE_FUNCTION, QUANTILE_DEFINITION)):
+                                 (QUANTILE_FUNCTION, QUANTILE_DEFINITION),
+                                 (UNSTACKED_FUNCTION, UNSTACKED_DEFINITION)):
         if function not in used or _defines(module, function):
             continue
         body = _insert_after_imports(body, _function(definition))

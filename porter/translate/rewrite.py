@@ -40,6 +40,7 @@ class ChildRewriter(cst.CSTTransformer):
         self.unfit: set[int] = set()  # f-strings whose rewritten code cannot stay between braces
         self.concatenations = 0  # depth of implicit string concatenations being visited
         self.format_calls: dict[int, tuple[cst.CSTNode, cst.Call]] = {}
+        self.attributes: set[int] = set()  # attributes whose receiver alone is rewritten
 
     def on_visit(self, node: cst.CSTNode) -> bool:
         if isinstance(node, cst.FormattedString):
@@ -77,15 +78,27 @@ class ChildRewriter(cst.CSTTransformer):
         if is_pandas(value):
             value = (Opaque(handover.for_display(value), sites=value.sites) if display
                      else evaluator.handed_to_unknown(value, node))
-        if isinstance(value, PandasValue) and not display:
-            self.pandas_inside = True
-        self.sites += value.sites
         original = evaluator.source(node)
+        replacement = None
         if value.code.text != original:
             try:
                 replacement = cst.parse_expression(value.code.text)
             except cst.ParserSyntaxError:  # a chain laid out over several lines
+                if isinstance(node, cst.Attribute):
+                    # `(df.set_index(k)\n .groupby)(...)` would garble the chain: the receiver
+                    # is rewritten and the attribute keeps its place on the next line
+                    self.attributes.add(id(node))
+                    self._replace(node.value, display)
+                    return
                 replacement = cst.parse_expression(f"({value.code.text})")
+                if "\n" in original:
+                    # the node was laid out over several lines, so it sits inside brackets
+                    # already: no second pair around the chain
+                    replacement = replacement.with_changes(lpar=[], rpar=[])
+        if isinstance(value, PandasValue) and not display:
+            self.pandas_inside = True
+        self.sites += value.sites
+        if replacement is not None:
             if (value.code.prec < precedence(node) or self.evaluator.services.glued(node)) \
                     and not replacement.lpar:
                 # `if(df.kg > 0).all():` - a keyword glued to its expression needs the
@@ -98,6 +111,8 @@ class ChildRewriter(cst.CSTTransformer):
         # nodes whose children were rewritten without being visited
         if isinstance(original, cst.Arg) and id(original.value) in self.replacements:
             return updated.with_changes(value=self.replacements[id(original.value)])
+        if id(original) in self.attributes and id(original.value) in self.replacements:  # type: ignore[attr-defined]
+            return updated.with_changes(value=self.replacements[id(original.value)])  # type: ignore[attr-defined]
         if isinstance(original, cst.FormattedStringExpression) \
                 and id(original.expression) in self.replacements:
             return updated.with_changes(expression=self._in_braces(original))

@@ -63,6 +63,13 @@ class Frame(Value):
     # columns pandas labels with a (column, function) pair of MultiIndex columns, flattened
     # here to "column_function": each flat name with its pair
     column_pairs: tuple[tuple[str, tuple[str, str]], ...] = field(default=(), kw_only=True)
+    # the rows token under which the rows are pandas' groupby(sort=True) result: each
+    # combination of the index keys once, none missing, their labels made in sorted order
+    # (what unstack lays out); a filter or sort since gives the frame other rows
+    grouped_rows: int | None = field(default=None, kw_only=True)
+    # pandas made the levels of the index in the order it met the keys (a groupby(sort=False)
+    # on two or more keys), not sorted as set_index makes them; unstack lays them out so
+    levels_as_met: bool = field(default=False, kw_only=True)
 
     def dtype(self, column: str) -> str | None:
         return dict(self.dtypes).get(column)

@@ -12,9 +12,9 @@ cheeses = pl.scan_csv(
     infer_schema_length=None,
 )
 cheeses = cheeses.with_columns(age_weeks=pl.col("age_days") // 7)
-# TODO(porter): frame.pivot_table: sum without fill_value: pandas makes every cell float when one is
-#   missing, which depends on the data; group_by the keys, then DataFrame.pivot(on, index, values)
-#   with the columns sorted
+# TODO(porter): frame.pivot_table: sum without fill_value of a column not known to be numbers:
+#   pandas makes every cell float when one is missing; group_by the keys, then DataFrame.pivot(on,
+#   index, values) with the columns sorted
 pivot = cheeses.collect().to_pandas().pivot_table(
     index="cellar",
     columns="kind",
