@@ -682,3 +682,41 @@ first = df["d"].min()
 result = [last.day_name(), first.month_name(), last.quarter, first.quarter, last.dayofweek,
           last.dayofyear, first.is_month_start, last.strftime("%Y-%m-%d")]
 ''')
+
+
+# bins "neg" and "mid" hold no row; "low" and "high" tie
+BINNED = """\
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"v": [1.0, 5.0, 2.0, 8.0, np.nan, 30.0]})
+df["bin"] = pd.cut(df["v"], bins=[-5, 0, 2.5, 4, 10, 50], labels=["neg", "low", "mid", "high", "top"])
+"""
+
+
+@pytest.mark.parametrize("call", [
+    "value_counts()", "value_counts(sort=False)", "value_counts(ascending=True)",
+    "value_counts(normalize=True)", "value_counts(dropna=False)",
+    "value_counts(dropna=False, sort=False)",
+])
+def test_value_counts_of_binned_values_lists_every_category(call: str) -> None:
+    # pandas counts a Categorical by its categories: the empty bins as 0, in the labels' order
+    # (sort=False), ties ordered by category when sorted
+    result = differential(BINNED + f'result = df["bin"].{call}\nempty = df[df["v"] > 100]["bin"].{call}\n',
+                          "result", "empty")
+    assert "pandas_category_counts(" in result.converted_text
+
+
+def test_value_counts_of_a_categorical_with_its_categories_written_out() -> None:
+    differential("""
+import pandas as pd
+df = pd.DataFrame({"size": ["XL", "L", "S", "L"], "v": [1, 2, 3, 4]})
+df["size"] = pd.Categorical(df["size"], categories=["S", "M", "L", "XL"], ordered=True)
+result = df["size"].value_counts(sort=False)
+ties = df["size"].value_counts()
+big = df[df["v"] > 1]["size"].value_counts(sort=False)
+""", "result", "ties", "big")
+
+
+def test_value_counts_of_astype_category_is_a_todo() -> None:
+    result = convert(FRAME + 'df["t"] = df["t"].astype("category")\nresult = df["t"].value_counts()\n')
+    assert any(s.key == "series.value_counts" for s in result.todos)

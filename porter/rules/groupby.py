@@ -15,7 +15,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.elementwise import body_expression
-from porter.rules.io_options import DIVIDE_FUNCTION, UNSTACKED_FUNCTION
+from porter.rules.io_options import CATEGORY_COUNTS_FUNCTION, DIVIDE_FUNCTION, UNSTACKED_FUNCTION
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_names, grouping_code,
 )
@@ -406,7 +406,11 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
     """s.value_counts() -> counts by value, most frequent first, ties in order of appearance.
 
     Handles: missing values not counted (dropna=True); normalize=True gives "proportion";
-    ascending=True.
+    ascending=True. A Categorical whose categories porter knows (pd.cut labels, an Enum of
+    pd.Categorical's categories) lists every category, one no row holds counted 0, in the
+    categories' order, which also orders ties when sorted (pandas_category_counts).
+    Caveats: a category column made by astype("category") is a TODO (pandas' categories are
+    the values it held when made, which porter does not know after a filter).
     """
     column = call.receiver
     assert isinstance(column, Column)
@@ -414,12 +418,21 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
     name = column.name
     if name is None:
         raise Unsupported("counting an unnamed Series")
+    if column.dtype == "category":
+        raise Unsupported("pandas counts every category of a Categorical, those no row holds "
+                          "too, in the categories' order; Polars' Categorical does not know them")
     frame = column.frame.code.method("select", column.code if column.code.text == emit.col(name).text
                                      else column.code.method("alias", name))
     if call.const("dropna", None, True):
         frame = frame.method("drop_nulls")
-    counts = frame.method("group_by", name, maintain_order=True).method(
-        "agg", emit.pl("len").method("cast", emit.atom("pl.Int64")).method("alias", "count"))
+    if column.dtype == "enum":
+        # pandas counts a Categorical by its categories: each once, in their order, an unused
+        # one as 0; missing values (dropna=False) after them. The stable sort below then orders
+        # ties by category, as pandas' does.
+        counts = emit.call(CATEGORY_COUNTS_FUNCTION, frame, name)
+    else:
+        counts = frame.method("group_by", name, maintain_order=True).method(
+            "agg", emit.pl("len").method("cast", emit.atom("pl.Int64")).method("alias", "count"))
     result_name = "count"
     if call.const("normalize", None, False):
         # divided value by value, as pandas divides (see series.arith)

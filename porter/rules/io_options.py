@@ -81,6 +81,24 @@ def pandas_unstacked(table, keys):
     return table
 """
 
+# A function, defined once at the top of a converted script, that counts an Enum column (a
+# pandas Categorical) as pandas' value_counts does: every category, those no row holds included.
+CATEGORY_COUNTS_FUNCTION = "pandas_category_counts"
+CATEGORY_COUNTS_DEFINITION = """\
+def pandas_category_counts(frame, name):
+    \"\"\"How many rows hold each category of the Enum column `name`, as pandas counts a
+    Categorical: every category in the categories' order, one no row holds counted 0, then the
+    missing values when the frame has any.\"\"\"
+    categories = frame.collect_schema()[name].categories
+    counts = frame.group_by(name).agg(pl.len().cast(pl.Int64).alias("count"))
+    every = pl.LazyFrame({name: categories}).cast({name: pl.Enum(categories)})
+    return pl.concat([
+        every.join(counts, on=name, how="left", maintain_order="left")
+        .with_columns(pl.col("count").fill_null(0)),
+        counts.filter(pl.col(name).is_null()),
+    ])
+"""
+
 # dtype spellings in read_csv(dtype=...) / astype(...) → (Polars dtype code, porter dtype name)
 DTYPES: dict[str, tuple[str, str]] = {
     "str": ("pl.String", "str"), "string": ("pl.String", "str"), "object": ("pl.String", "str"),

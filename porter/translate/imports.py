@@ -6,6 +6,7 @@ import libcst as cst
 
 from porter.analysis.imports import ImportFacts
 from porter.rules.io_options import (
+    CATEGORY_COUNTS_DEFINITION, CATEGORY_COUNTS_FUNCTION,
     CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION, CSV_INTS_CONSTANT, CSV_INTS_DEFINITION,
     DIVIDE_DEFINITION, DIVIDE_FUNCTION,
     NA_CONSTANT, PANDAS_NA_TOKENS, QUANTILE_DEFINITION, QUANTILE_FUNCTION,
@@ -87,7 +88,8 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
             body = _insert_after_imports(body, _constant(definition))
     for function, definition in ((DIVIDE_FUNCTION, DIVIDE_DEFINITION),
                                  (QUANTILE_FUNCTION, QUANTILE_DEFINITION),
-                                 (UNSTACKED_FUNCTION, UNSTACKED_DEFINITION)):
+                                 (UNSTACKED_FUNCTION, UNSTACKED_DEFINITION),
+                                 (CATEGORY_COUNTS_FUNCTION, CATEGORY_COUNTS_DEFINITION)):
         if function not in used or _defines(module, function):
             continue
         body = _insert_after_imports(body, _function(definition))
