@@ -102,12 +102,24 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     # of helpers).
     for _ in range(10):
         services.call_sites = {}
+        services.labels_needed = set()  # learnt below, once the functions are known
         walker = _Walker(services, facts, emit_code=False)
         walker.block(module.body, _initial_env(facts), module.default_indent, "")
         updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values)
         if updated == services.functions:
             break
         services.functions = updated
+    # Then which frames pandas must make for their row labels, with the functions known (a
+    # column given to a function not learnt yet looked handed over): a label read found in one
+    # pass can make an earlier statement pandas' in the next, back along a chain of filters.
+    services.labels_needed = set()
+    for _ in range(10):
+        labels_before = set(services.labels_needed)
+        services.call_sites = {}
+        walker = _Walker(services, facts, emit_code=False)
+        walker.block(module.body, _initial_env(facts), module.default_indent, "")
+        if services.labels_needed == labels_before:
+            break
 
     services.collect_at = plans_to_collect(services.consumers, services.frame_parents)
     services.call_sites = {}
@@ -921,7 +933,15 @@ class _Walker:
         if not frames or any(not isinstance(env[n], (Frame, PandasValue, Module, Opaque, Scalar))
                              for n in read):
             return None
-        if any(not env[n].labels_intact or env[n].index for n in frames):  # type: ignore[union-attr]
+        if any(env[n].index for n in frames):  # type: ignore[union-attr]
+            return None
+        renumbered = [n for n in frames if not env[n].labels_intact]  # type: ignore[union-attr]
+        if renumbered:
+            # its own rows were filtered or sorted before: the next pass has pandas make that
+            # frame too, back to one whose labels are 0..n-1
+            for n in renumbered:
+                if env[n].binding is not None:  # type: ignore[union-attr]
+                    self.services.labels_needed.add(env[n].binding)  # type: ignore[union-attr]
             return None
         lines = []
         for n in frames:
@@ -971,6 +991,14 @@ class _Walker:
             made = self.made_by_pandas(name, small.value, env, value)  # type: ignore[union-attr]
             if made is not None:
                 return made
+        if frame_of is not None and not binds_name and not frame_of.labels_intact \
+                and not frame_of.index and self.statement_key in self.services.labels_needed:
+            # `df["b"] = ...` keeps the rows: their labels are the frame's before it, which
+            # the next pass has pandas make
+            before = env.get(name)
+            before = before.frame if isinstance(before, Column) else before
+            if isinstance(before, Frame) and before.binding is not None:
+                self.services.labels_needed.add(before.binding)
         if isinstance(value, Frame) and isinstance(source, cst.Name) and source.value != name \
                 and self.changed_later(name, source.value):
             # `view = df` and one of them changed in place: both names are one object in

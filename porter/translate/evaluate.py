@@ -341,6 +341,36 @@ class Evaluator:
         if not frame.labels_intact and not frame.index and frame.binding is not None:
             self.services.labels_needed.add(frame.binding)
 
+    def rows_without_labels(self, call: PandasCall) -> bool:
+        """df.apply(f, axis=1) whose function reads its row only by column (row["kg"],
+        row.kg): the result does not depend on the row labels (row.name), and pandas' result
+        has the frame's rows in order, so it can be put back on them."""
+        function = call.args[0] if call.args else call.kwargs.get("func")
+        node = function.node if isinstance(function, Opaque) else None
+        if isinstance(node, cst.Name):
+            node = self.services.function_defs.get(node.value)
+        if isinstance(node, cst.Lambda):
+            params, body = node.params.params, node.body
+        elif isinstance(node, cst.FunctionDef):
+            params, body = node.params.params, node.body
+        else:
+            return False
+        if len(params) != 1:
+            return False
+        return _only_by_column(body, params[0].name.value)
+
+    def note_handed_over(self, value: Value | None) -> None:
+        """A frame or Series (or the frame of a groupby) given to pandas code porter does not
+        rewrite: that code may read its row labels (a loop's labels, row.name, a group's rows,
+        an index written out, a plot's x axis), so after a filter or sort pandas makes it."""
+        if isinstance(value, Grouped):
+            value = value.frame
+        if isinstance(value, Column) and value.binding is not None \
+                and not value.frame.labels_intact and not value.frame.index:
+            self.services.labels_needed.add(value.binding)
+        elif isinstance(value, (Frame, Column)):
+            self.note_labels_read(value if isinstance(value, Frame) else value.frame)
+
     def note_alignment(self, key: str, call: PandasCall) -> None:
         """A call pandas makes on Series or frames of different rows that aligns them on their
         labels (arithmetic, comparisons, assignment, join on the index, concat side by side…;
@@ -356,8 +386,9 @@ class Evaluator:
             return
         if key not in _ALIGNING and not (key == "pd.concat" and _side_by_side(call)):
             return
-        values = [v for v in (call.receiver, *call.args, *call.kwargs.values())
-                  if isinstance(v, (Frame, Column))]
+        given = [call.receiver, *call.args, *call.kwargs.values()]
+        given = [x for v in given for x in (v.items if isinstance(v, Items) else (v,))]  # concat([a, b])
+        values = [v for v in given if isinstance(v, (Frame, Column))]
         frames = [v if isinstance(v, Frame) else v.frame for v in values]  # type: ignore[union-attr]
         if len({f.rows for f in frames}) < 2:
             return
@@ -724,6 +755,8 @@ class Evaluator:
                          line, end_line, suggestion)
         fallback = handover.pandas_fallback(call, self.source, node)
         self.note_alignment(key, call)
+        if key not in _ELEMENT_CALLS and not (key == "frame.apply" and self.rows_without_labels(call)):
+            self.note_handed_over(call.receiver)
         sites = _child_sites(call, None) + (site,)
         if (call.receiver is None and entry is not None and entry.extra.get("returns") == "frame"
                 and not self.services.inside_from_pandas(node)
@@ -749,6 +782,7 @@ class Evaluator:
     def handed_to_unknown(self, value: Value, node: cst.CSTNode) -> Value:
         """A pandas value passed to code porter does not model: give it the pandas object."""
         line, end_line = self.services.position(node)
+        self.note_handed_over(value)
         code = handover.to_pandas(value)
         message = ("passed to code porter does not understand: handed over to pandas with "
                    ".collect().to_pandas(); port that code to take a Polars frame")
@@ -829,6 +863,40 @@ _LABEL_READERS = frozenset({
     "frame.reindex", "series.reindex", "frame.index", "series.index", "frame.first_valid_index",
     "series.first_valid_index", "frame.last_valid_index", "series.last_valid_index",
 })
+
+
+# calls whose function sees one value at a time (never a label)
+_ELEMENT_CALLS = frozenset({"series.apply", "series.map", "frame.map", "frame.applymap"})
+
+
+def _only_by_column(body: cst.CSTNode, param: str) -> bool:
+    """`param` is read in `body` only as param[...] or param.<column>, never as param.name
+    (the row's label) or passed on whole."""
+    ok = True
+
+    class Uses(cst.CSTVisitor):
+        def visit_Subscript(self, node: cst.Subscript) -> bool:
+            if isinstance(node.value, cst.Name) and node.value.value == param:
+                for element in node.slice:
+                    element.visit(self)
+                return False
+            return True
+
+        def visit_Attribute(self, node: cst.Attribute) -> bool:
+            if isinstance(node.value, cst.Name) and node.value.value == param:
+                nonlocal ok
+                ok = ok and node.attr.value not in ("name", "get", "items", "iteritems",
+                                                    "to_dict", "keys")
+                return False
+            return True
+
+        def visit_Name(self, node: cst.Name) -> None:
+            nonlocal ok
+            if node.value == param:
+                ok = False
+
+    body.visit(Uses())
+    return ok
 
 
 def _side_by_side(call: PandasCall) -> bool:

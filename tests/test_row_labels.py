@@ -1,0 +1,119 @@
+"""Row labels after filters and sorts, when pandas code reads them, checked against pandas (the
+reference implementation).
+
+After a filter or a sort pandas keeps each row's original number as its label. A Polars frame
+has no labels, so wherever pandas code reads them (a loop's row label, row.name, a Series
+assigned into the frame, concat side by side, an index written out) porter has pandas make the
+frame, back along a chain of statements to one whose labels are still 0..n-1. The data is an
+invented ferry line's crossing log.
+"""
+
+from __future__ import annotations
+
+import pytest
+
+from support import convert, differential
+
+
+@pytest.fixture(autouse=True)
+def crossings(tmp_path, monkeypatch):
+    (tmp_path / "crossings.csv").write_text(
+        "boat,leg,cars,fare\nOrm,north,12,5.5\nSkarv,south,-3,4.0\nOrm,north,7,\n"
+        "Lunde,east,0,6.25\n,south,9,3.0\nSkarv,north,15,5.5\nLunde,south,4,2.0\n",
+        encoding="utf-8")
+    monkeypatch.chdir(tmp_path)
+
+
+HEAD = 'import pandas as pd\ndf = pd.read_csv("crossings.csv")\n'
+
+
+@pytest.mark.parametrize("body", [
+    # two filters in two statements, then the labels written out
+    'df = df[df["cars"] > 0]\ndf = df[df["leg"] != "east"]\nresult = df.reset_index()\n',
+    # a dropna, a filter, then idxmax per group
+    'df = df.dropna(subset=["boat"])\npos = df[df["cars"] > 0]\n'
+    'result = pos.groupby("boat")["cars"].idxmax()\n',
+    # a sort, a new column, a filter, then the labels
+    'df = df.sort_values("cars", kind="stable")\ndf["double"] = df["cars"] * 2\n'
+    'late = df[df["cars"] > 2]\nresult = list(late.index)\n',
+])
+def test_labels_after_a_chain_of_statements(body: str) -> None:
+    differential(HEAD + body)
+
+
+def test_a_loop_over_rows_reads_their_labels() -> None:
+    differential(HEAD + """\
+pos = df[df["cars"] > 0]
+labels, doubled = [], []
+for i, row in pos.iterrows():
+    labels.append(i)
+    doubled.append(row["cars"] * 2)
+tags = []
+for t in pos.itertuples():
+    tags.append(f"{t.Index}-{t.boat}")
+""", "labels", "doubled", "tags")
+
+
+def test_row_name_in_a_row_function_after_a_filter() -> None:
+    differential(HEAD + """\
+f = df[df["fare"].notna()].copy()
+f["tag"] = f.apply(lambda r: f"{r.name}:{r['leg']}", axis=1)
+result = f
+""")
+
+
+def test_a_row_function_reading_columns_only_is_put_back_by_position() -> None:
+    # no label read: the sort stays Polars and pandas' result is put back on the same rows
+    result = differential(HEAD + """\
+def tag(row):
+    text = ""
+    for part in (row["leg"], row["boat"]):
+        text += str(part)
+    return text
+df = df.sort_values("cars", kind="stable")
+df["tag"] = df.apply(tag, axis=1)
+result = df.reset_index(drop=True)
+""")
+    assert "pl.Series(" in result.converted_text
+
+
+@pytest.mark.parametrize("body", [
+    # a Series computed by pandas, assigned into a filtered or a sorted frame: pandas aligns it
+    'def ten(v):\n    try:\n        return int(v) * 10\n    except ValueError:\n        return -1\n'
+    's = df["cars"].apply(ten)\nd2 = df[df["leg"] != "north"]\nd2["s"] = s\nresult = d2\n',
+    'def ten(v):\n    try:\n        return int(v) * 10\n    except ValueError:\n        return -1\n'
+    's = df["cars"].apply(ten)\nd3 = df.sort_values("cars")\nd3["s"] = s\nresult = d3\n',
+    'def ten(v):\n    try:\n        return int(v) * 10\n    except ValueError:\n        return -1\n'
+    's = df["cars"].apply(ten)\ndf = df[df["cars"] > 0]\ndf["s"] = s\nresult = df\n',
+])
+def test_a_series_from_pandas_assigned_into_other_rows(body: str) -> None:
+    differential(HEAD + body)
+
+
+def test_concat_side_by_side_of_two_filtered_frames() -> None:
+    differential(HEAD + """\
+a1 = df[df["cars"] > 5][["boat", "cars"]]
+a2 = df[df["fare"] < 5.5][["fare"]]
+result = pd.concat([a1, a2], axis=1)
+""")
+
+
+def test_group_apply_returning_rows_keeps_their_labels() -> None:
+    differential(HEAD + """\
+pos = df[df["cars"] > 0]
+top = pos.groupby("leg", group_keys=True).apply(lambda x: x.nlargest(1, "cars"))
+result = top.reset_index()
+""")
+
+
+def test_a_corpus_style_pipeline_without_label_reads_stays_polars() -> None:
+    # a column given to the script's own function is not a label read
+    result = convert(HEAD + """\
+def tidy(s):
+    return s.str.strip().str.title()
+df = df.drop_duplicates()
+df["boat"] = tidy(df["boat"])
+df = df.sort_values("cars")
+totals = df.groupby("leg")["cars"].sum()
+""")
+    assert "to_pandas" not in result.converted_text, result.converted_text
