@@ -14,8 +14,8 @@ SCRIPT = """\
 import pandas as pd
 
 df = pd.read_csv("data/kg.csv")
-df = df.sort_values("kg")
 rows = [r for _, r in df.iterrows()]
+df = df.sort_values("kg")
 df.to_csv("out.csv", index=False)
 """
 

@@ -336,8 +336,15 @@ def test_unchanged(source: str) -> None:
 
 
 def test_confidence_of_a_merge_with_known_columns() -> None:
-    found, _ = site('result = left.merge(right, on="k", how="outer")\n', "frame.merge")
+    found, _ = site('result = left.merge(right, on="k", how="inner")\n', "frame.merge")
     assert (found.status, found.confidence) == ("converted", 0.97)
+
+
+def test_an_int_column_that_may_turn_float_lowers_the_confidence() -> None:
+    # pandas makes the other side's int column float when a row finds no match (data decides)
+    found, _ = site('result = left.merge(right, on="k", how="outer")\n', "frame.merge")
+    assert found.status == "converted" and found.confidence == 0.95
+    assert "float" in found.message
 
 
 def test_converted_concat_reports_no_todo() -> None:

@@ -142,6 +142,18 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
                                              for k in back))
     dtypes = {**rside.dtypes, **lside.dtypes, **{k: "int" for k in back}} \
         if columns is not None else {}
+    # a row of one side that finds no match gives the other side's columns missing values:
+    # pandas then holds an int column as floats (10.0) and a True/False one as objects, which
+    # depends on the data; Polars keeps Int64 with nulls (to_csv writes 10.0 while a missing
+    # value is left, but not after a dropna, and astype(str) gives "10")
+    optional = {"left": [rside], "right": [lside], "outer": [lside, rside]}.get(how, [])
+    changing = sorted({c for side in optional for c, t in side.dtypes.items()
+                       if t in ("int", "bool") and c not in side.keys})
+    if changing:
+        ctx.lower(f"{', '.join(changing)}: pandas makes an int column float (a True/False one "
+                  "object) when a row finds no match, which depends on the data; Polars keeps "
+                  "its type with missing values", 0.95)
+        dtypes = {c: t for c, t in dtypes.items() if c not in changing}
     return Frame(code, columns=columns, labels_intact=True,
                  index=lside.index if lside.index and rside.index else (),
                  dtypes=tuple((c, dtypes[c]) for c in columns or () if c in dtypes))
