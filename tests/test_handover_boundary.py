@@ -633,3 +633,55 @@ def test_a_dropped_column_is_not_cast_on_either_side_of_the_boundary():
         for i in range(1):
             rows.append(df)
         ''', "df")
+
+
+# -- a pivot on an integer key: pandas labels the new columns with numbers -------------------
+
+@pytest.fixture
+def landings(tmp_path):
+    (tmp_path / "landings.csv").write_text(
+        "quay,year,boats\nA,2023,1\nA,2024,5\nB,2023,3\nB,2024,4\nC,2024,7\nA,2024,2\n",
+        encoding="utf-8")
+
+
+def test_pandas_code_finds_a_pivot_tables_columns_by_their_integer_labels(landings):
+    # Polars names the pivoted columns "2023" / "2024"; pandas code given the frame reads
+    # pv[2024], also after the frame came back to Polars and goes to pandas again
+    text = differential("""
+        import pandas as pd
+        df = pd.read_csv("landings.csv")
+        pv = df.pivot_table(index="quay", columns="year", values="boats", aggfunc="sum").reset_index()
+        pv["growth"] = pv[2024] - pv[2023]
+        pv = pv.sort_values("quay", ascending=False)
+        pv["ratio"] = pv["growth"] * 2
+        pv = pv.reset_index(drop=True)
+        pv["double"] = pv[2023] * 2
+        newest = pv[2024].tolist()
+    """, "pv", "newest", data_dir=".").converted_text
+    assert "pl.from_pandas(pv)" in text
+
+
+def test_pandas_code_finds_a_crosstabs_and_an_unstacked_tables_integer_labels(landings):
+    differential("""
+        import pandas as pd
+        df = pd.read_csv("landings.csv")
+        ct = pd.crosstab(df["quay"], df["year"], margins=True)
+        latest = ct[2024].tolist()
+        u = df.groupby(["quay", "year"])["boats"].sum().unstack()
+        first = u[2023].tolist()
+    """, "latest", "first", data_dir=".")
+
+
+def test_pivot_columns_named_by_the_script_keep_its_names_for_pandas_code(landings):
+    differential("""
+        import pandas as pd
+        df = pd.read_csv("landings.csv")
+        pv = df.pivot_table(index="quay", columns="year", values="boats", aggfunc="max")
+        named = pv.copy()
+        named.columns = ["2023", "2024"]
+        named = named.reset_index()
+        latest = named.to_dict()["2024"]
+        renamed = pv.rename(columns={2024: "now"}).reset_index()
+        old = renamed[2023].tolist()
+        now = renamed.to_dict()["now"]
+    """, "latest", "old", "now", data_dir=".")

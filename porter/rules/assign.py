@@ -4,6 +4,8 @@ df.loc[mask, "c"] = ..., del df["c"]."""
 from __future__ import annotations
 
 import ast
+from collections.abc import Iterable
+from dataclasses import replace
 
 import keyword
 
@@ -43,7 +45,17 @@ def with_columns(frame: Frame, items: list[tuple[str, Code, str | None]]) -> Fra
     if not args and not kwargs:
         return frame
     code = frame.code.method("with_columns", *args, **kwargs)
-    return with_column_updates(frame, code, {name: dtype for name, _, dtype in items})
+    result = with_column_updates(frame, code, {name: dtype for name, _, dtype in items})
+    return _text_labelled(result, [name for name, _, _ in items])
+
+
+def _text_labelled(frame: Frame, names: Iterable[str]) -> Frame:
+    """`frame` where pandas labels the columns `names` with text (written by a text key, or
+    renamed to text), after a pivot on an integer key whose columns pandas labels by number."""
+    if frame.int_labels_except is None:
+        return frame
+    kept = frame.int_labels_except
+    return replace(frame, int_labels_except=(*kept, *(n for n in names if n not in kept)))
 
 
 def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str | None]:
@@ -299,8 +311,8 @@ def rename(call: PandasCall, ctx: RuleContext) -> Value:
     dtypes = tuple((names.get(k, k), v) for k, v in frame.dtypes)
     versions = tuple((names.get(k, k), v) for k, v in frame.versions)
     index = tuple(names.get(k, k) for k in frame.index)
-    return derive(frame, code, same_rows=True, columns=new_columns, dtypes=dtypes,
-                  versions=versions, index=index)
+    return _text_labelled(derive(frame, code, same_rows=True, columns=new_columns, dtypes=dtypes,
+                                 versions=versions, index=index), names.values())
 
 
 @rule("frame.drop")
@@ -350,7 +362,8 @@ def set_columns(call: PandasCall, ctx: RuleContext) -> Value:
         if isinstance(value, Opaque):
             code = frame.code.method("rename", emit.call("dict", emit.call("zip", old_names, value.code)))
             ctx.lower("new names are computed at run time", 0.9)
-            return derive(frame, code, same_rows=True, columns=None, dtypes=(), column_pairs=())
+            return derive(frame, code, same_rows=True, columns=None, dtypes=(), column_pairs=(),
+                          int_labels_except=None)
         raise Unsupported("new column names from a pandas value")
     new = [str(v) for v in value.const]
     if len(set(new)) != len(new):
@@ -368,10 +381,10 @@ def set_columns(call: PandasCall, ctx: RuleContext) -> Value:
         kinds = tuple((n, k) for o, n in zip(frame.columns, [mapping.get(c, c) for c in frame.columns])
                       if (k := frame.dtype(o)))
         return derive(frame, code, same_rows=True, columns=tuple(mapping.get(c, c) for c in frame.columns),
-                      dtypes=kinds, column_pairs=())
+                      dtypes=kinds, column_pairs=(), int_labels_except=None)
     code = frame.code.method("rename", emit.call("dict", emit.call("zip", old_names, new)))
     return derive(frame, code, same_rows=True, columns=(*frame.index, *new) if frame.index else tuple(new),
-                  dtypes=(), column_pairs=())
+                  dtypes=(), column_pairs=(), int_labels_except=None)
 
 
 _ARRAYS = ("series.values", "series.to_numpy", "frame.values", "frame.to_numpy")

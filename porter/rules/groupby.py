@@ -553,7 +553,8 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     pivoted table); the index keys stay label columns.
     Caveats: one values column and one columns key; sum, min and max of a column not known to
     be numbers without fill_value, margins, dropna=False, sort=False and lists or dicts of
-    functions are TODOs.
+    functions are TODOs. The new columns are named by their values as text; handed to pandas,
+    those of an integer key get pandas' integer labels back.
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
@@ -606,7 +607,10 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     elif float_when_missing and value_dtype != "float":
         code = code.method("pipe", emit.atom(UNSTACKED_FUNCTION), index)
     ctx.lower("the new columns are named by their values as text (pandas keeps the values)", 0.95)
-    return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False)
+    # pandas code given the table finds the columns by the key's values (pv[2024])
+    int_labels = tuple(keys) if frame.dtype(columns) == "int" else None
+    return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False,
+                 int_labels_except=int_labels)
 
 
 # -- groupby().apply(f) where f makes one row of aggregates ---------------------------------------

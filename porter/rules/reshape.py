@@ -84,7 +84,8 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
     Caveats: dropna=False, normalize or margins with values, margins with several keys or an
     index key not known to be text, and sum / min / max / count of a column not known to be
     float (pandas makes the cells float when one combination is missing) are TODOs. The new
-    columns are named by their values as text; boolean and datetime column keys are TODOs
+    columns are named by their values as text (handed to pandas, those of an integer key get
+    pandas' integer labels back); boolean and datetime column keys are TODOs
     (Polars names them true / 2024-01-01 00:00:00.000000). margins=True on no rows raises in
     Polars where pandas gives an empty table.
     """
@@ -198,8 +199,11 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
     if margins:
         code = _margins(code, row_names[0], margins_name, normalize)
     dtypes = tuple((n, s.dtype) for s, n in zip(rows, row_names) if s.dtype is not None)
+    # pandas code given the table finds the columns by the key's values (ct[2024])
+    int_labels = (*row_names, *([margins_name] if margins else [])) \
+        if len(cols) == 1 and cols[0].dtype == "int" else None
     return Frame(code.method("lazy"), columns=None, index=tuple(row_names), dtypes=dtypes,
-                 labels_intact=False)
+                 labels_intact=False, int_labels_except=int_labels)
 
 
 def _margins(code: Code, key: str, name: str, normalize: str | None) -> Code:
@@ -239,7 +243,8 @@ def unstack(call: PandasCall, ctx: RuleContext) -> Value:
     Caveats: only the Series a groupby(sort=True) made, before any filter or sort (pandas
     follows the order its labels were made in); text, True/False, date and unknown values
     (pandas makes an object column) and True/False or date column keys are TODOs. The new
-    columns are named by their values as text (0.95 unless the key is text).
+    columns are named by their values as text (0.95 unless the key is text); handed to
+    pandas, those of an integer key get pandas' integer labels back.
     """
     column = call.receiver
     assert isinstance(column, Column)
@@ -294,8 +299,10 @@ def unstack(call: PandasCall, ctx: RuleContext) -> Value:
     elif column.dtype == "int":
         code = code.method("pipe", emit.atom(UNSTACKED_FUNCTION), index)
     dtypes = tuple((k, frame.dtype(k)) for k in rest if frame.dtype(k) is not None)
+    # pandas code given the table finds the columns by the key's values (t[2024])
+    int_labels = tuple(rest) if frame.dtype(on) == "int" else None
     return Frame(code.method("lazy"), columns=None, index=tuple(rest), dtypes=dtypes,
-                 labels_intact=False)
+                 labels_intact=False, int_labels_except=int_labels)
 
 
 # -- melt ---------------------------------------------------------------------------------------

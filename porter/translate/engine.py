@@ -1403,7 +1403,8 @@ def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
         # `df["c"] = pd.Categorical(..., categories=[...])`: an Enum of pandas' categories
         dtypes = (*((c, t) for c, t in dtypes if c != key), (key, "enum"))
     return Frame(emit.atom(name), columns=columns, dtypes=dtypes,
-                 labels_intact=frame.labels_intact)
+                 labels_intact=frame.labels_intact,
+                 int_labels_except=handover.int_labels_after(frame, key))
 
 
 def _whole_column(target: cst.Subscript) -> cst.BaseExpression:

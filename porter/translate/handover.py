@@ -63,6 +63,24 @@ def _labels(code: Code, frame: Frame) -> Code:
     return code.method("set_index", keys)
 
 
+def _int_labels(texts: tuple[str, ...]) -> Code:
+    """The rename that gives the columns a pivot on an integer key made pandas' labels: Polars
+    named them by the values as text ("2024"), pandas by the values (2024). Only names that
+    are an integer's text change: a column porter did not see written keeps its name."""
+    others = f"c not in {emit.render(tuple(texts))} and " if texts else ""
+    return emit.atom(f'lambda c: int(c) if {others}c.removeprefix("-").isdecimal() else c')
+
+
+def int_labels_after(frame: Frame, written: object) -> tuple[str, ...] | None:
+    """`int_labels_except` of a frame after a statement kept on pandas wrote one column under
+    the text key `written` (`pv["growth"] = pv[2024] - pv[2023]`); None when the statement
+    did something else to it (it may have renamed the columns)."""
+    if frame.int_labels_except is None or not isinstance(written, str):
+        return None
+    kept = frame.int_labels_except
+    return kept if written in kept else (*kept, written)
+
+
 def to_pandas(value: Value) -> Code:
     """The pandas object this value stands for (index restored where porter tracks one; dates,
     missing True/False values and categories as pandas holds them)."""
@@ -84,6 +102,8 @@ def to_pandas(value: Value) -> Code:
                   and (value.columns is None or c in value.columns)]
         if labels:  # pandas' own labels 0, 1, … are integers
             code = code.method("rename", columns={c: int(c) for c in labels})
+        if value.int_labels_except is not None:
+            code = code.method("rename", columns=_int_labels(value.int_labels_except))
         return code
     if isinstance(value, Column):
         if getattr(value, "pandas", None) is not None:

@@ -70,6 +70,11 @@ class Frame(Value):
     # pandas made the levels of the index in the order it met the keys (a groupby(sort=False)
     # on two or more keys), not sorted as set_index makes them; unstack lays them out so
     levels_as_met: bool = field(default=False, kw_only=True)
+    # a pivot (pivot_table, crosstab, unstack) on an integer key made the columns not named
+    # here: pandas labels them with the key's values (2024), Polars names them as text
+    # ("2024"); the names here (the index keys, a margin, columns written since) are text in
+    # both. None: no such columns
+    int_labels_except: tuple[str, ...] | None = field(default=None, kw_only=True)
 
     def dtype(self, column: str) -> str | None:
         return dict(self.dtypes).get(column)
