@@ -255,13 +255,43 @@ def test_value_counts_matches_pandas(expr: str) -> None:
     differential(FRAME + f"result = {expr}\n")
 
 
-@pytest.mark.parametrize("column", ["shop", "qty", "t"])
-def test_unique_in_order_of_appearance(column: str) -> None:
-    # pandas gives an array with nan for missing; Polars a Series with None.
-    source = FRAME + f'result = list(df["{column}"].unique())\n'
-    expected = [None if pd.isna(v) else v for v in run(source)["result"]]
-    actual = list(run(convert(source).converted_text)["result"])
-    assert actual == expected
+@pytest.mark.parametrize("column", ["qty", "n"])
+def test_unique_of_numbers_is_the_array_pandas_gives(column: str) -> None:
+    # pandas gives a numpy array with nan for a missing value (not None): the values' reprs,
+    # the usual `v == v` filter and tolist() agree
+    differential(FRAME + f"""
+u = df["{column}"].unique()
+result = [repr(v) for v in u]
+kept = [repr(v) for v in u if v == v]
+listed = repr(u.tolist())
+size = len(u)
+""", "result", "kept", "listed", "size")
+
+
+@pytest.mark.parametrize("column", ["shop", "t"])
+def test_unique_of_text_in_order_of_appearance(column: str) -> None:
+    # pandas gives nan for a missing text, porter None (lowered): compared as missing
+    source = FRAME + f'u = df["{column}"].unique()\nresult = u.tolist()\nfirst = u[0]\n'
+    result = differential(source, "result", "first")
+    assert any(s.key == "series.unique" and s.confidence == 0.95 for s in result.sites)
+
+
+def test_unique_of_numbers_and_dates_as_pandas_gives_them() -> None:
+    # an integer column with a missing value is float in pandas; NaN made by a division and a
+    # missing value are one value in pandas' unique; dates stay a Polars Series (lowered)
+    result = differential("""
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"k": [1, 2, 1, None, 2], "a": [0.0, 1.0, 0.0, np.nan, 2.0],
+                   "b": [0.0, 1.0, 0.0, 3.0, 2.0],
+                   "d": ["2024-01-02", None, "2024-01-02", "2024-03-01", None]})
+df["r"] = df["a"] / df["b"]
+df["d"] = pd.to_datetime(df["d"], format="%Y-%m-%d")
+result = [repr(v) for v in df["k"].unique()]
+ratios = repr(df["r"].unique().tolist())
+days = [str(v)[:10] for v in df["d"].unique() if not pd.isna(v)]
+""", "result", "ratios", "days")
+    assert any(s.key == "series.unique" and s.confidence == 0.9 for s in result.sites)
 
 
 def test_empty_frame_groupby() -> None:

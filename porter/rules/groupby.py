@@ -450,15 +450,34 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("series.unique")
 def unique(call: PandasCall, ctx: RuleContext) -> Value:
-    """s.unique() -> the distinct values in order of first appearance (a Polars Series).
+    """s.unique() -> the distinct values in order of first appearance, as an array.
 
-    Caveats: a missing value shows as None where pandas shows nan.
+    Handles: numbers are a numpy array, as pandas gives them (to_numpy()): a missing value is
+    nan (NaN and a missing value are one value, as pandas counts them), an integer column with
+    one is float, and tolist() / iterating give numbers.
+    Caveats: text, True/False and values of unknown type are a numpy array of Polars' values,
+    where a missing value is None, not nan (0.95; None still compares in Polars expressions,
+    nan would not against text); dates and categories stay a Polars Series (0.9: no tolist()).
     """
     column = call.receiver
     assert isinstance(column, Column)
-    code = column.frame.code.method("select", column.code.method("unique", maintain_order=True)) \
+    ctx.reject_unknown(call)
+    values = column.code
+    if column.dtype == "float":
+        values = values.method("fill_nan", None)  # pandas has one missing value, NaN
+    series = column.frame.code.method("select", values.method("unique", maintain_order=True)) \
         .method("collect").method("to_series")
-    return Scalar(code, pytype="series")
+    if column.dtype in ("int", "float"):
+        # pandas' unique of numbers is a numpy array; Polars' to_numpy makes a missing value
+        # nan (an integer column with one becomes float, as it is in pandas)
+        return Scalar(series.method("to_numpy"), pytype="array")
+    if column.dtype in ("str", "bool", None):
+        ctx.lower("a missing value in the distinct values is None here, nan in pandas", 0.95)
+        return Scalar(series.method("to_numpy"), pytype="array")
+    ctx.lower(f"the distinct values of a {column.dtype} column are a Polars Series: iterating "
+              "gives Python values (None for a missing one), and pandas' array methods such as "
+              "tolist() are not there", 0.9)
+    return Scalar(series, pytype="series")
 
 
 @rule("frame.describe")

@@ -34,6 +34,7 @@ branches = (
     .select(pl.col("branch").unique(maintain_order=True))
     .collect()
     .to_series()
+    .to_numpy()
 )
 print(
     len(branches),

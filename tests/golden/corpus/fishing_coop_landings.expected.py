@@ -121,7 +121,8 @@ quota = (
 print(
     landings.select(pl.col("species").unique(maintain_order=True))
     .collect()
-    .to_series(),
+    .to_series()
+    .to_numpy(),
 )
 
 status = quota_status(landings, quota).collect().lazy()

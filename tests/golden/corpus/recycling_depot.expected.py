@@ -57,7 +57,10 @@ drops = (
     .lazy()
 )
 print(
-    drops.select(pl.col("material").unique(maintain_order=True)).collect().to_series(),
+    drops.select(pl.col("material").unique(maintain_order=True))
+    .collect()
+    .to_series()
+    .to_numpy(),
 )
 print(
     drops.select(pl.col("material"))
