@@ -229,3 +229,15 @@ def test_to_excel_matches_pandas(tmp_path, monkeypatch: pytest.MonkeyPatch) -> N
     monkeypatch.chdir(tmp_path)
     differential(FRAME + 'df.groupby("k").agg(total=("v", "sum")).to_excel("out.xlsx")\n'
                  'result = pd.read_excel("out.xlsx")\n')
+
+
+@pytest.mark.parametrize("use", [
+    'list(df["v"])', 'max(df["v"].fillna(0))', 'min(df["v"], default=0)',
+    'sum(df["v"].fillna(0))', 'list(df)', 'sorted(df["k"].dropna())',
+])
+def test_a_builtin_without_a_rule_is_given_the_series_as_pandas_has_it(use):
+    # max(df["v"]) under a TODO: the Series goes to pandas, never a subscripted LazyFrame
+    differential(FRAME + textwrap.dedent(f"""
+        df["w"] = df["v"] * 2
+        result = {use}
+    """))

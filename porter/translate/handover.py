@@ -254,7 +254,12 @@ def _argument_value(call: PandasCall, arg: cst.Arg) -> Value | None:
     else:
         index = [a for a in (call.node.args if isinstance(call.node, cst.Call) else ())
                  if a.keyword is None].index(arg)
-        value = call.args[index] if index < len(call.args) else None
+        positional = call.args
+        if call.receiver is not None and isinstance(call.node, cst.Call) \
+                and not isinstance(call.node.func, cst.Attribute):
+            # a builtin given a Series (`max(df["x"])`): the Series is the call's receiver
+            positional = (call.receiver, *call.args)
+        value = positional[index] if index < len(positional) else None
     return value
 
 
