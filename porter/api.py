@@ -25,8 +25,9 @@ OLDEST_PYTHON = (3, 11)
 DATETIME_HINTS = re.compile(r"parse_dates|to_datetime|read_parquet|read_excel|read_json|read_sql|"
                             r"Timestamp|datetime|date_range|\.dt\.|astype\(.datetime")
 # what can make pandas' nullable integer columns (written 2024 where a plain integer column with
-# a missing value, float in pandas, is written 2024.0)
-NULLABLE_INT_HINTS = re.compile(r"U?Int(8|16|32|64)|convert_dtypes|dtype_backend|pd\.NA\b|pd\.array")
+# a missing value, float in pandas, is written 2024.0); dt.isocalendar() makes UInt32 / Int32 ones
+NULLABLE_INT_HINTS = re.compile(r"U?Int(8|16|32|64)|convert_dtypes|dtype_backend|pd\.NA\b|pd\.array|"
+                                r"isocalendar")
 # what can make a category column: pandas sorts it by its categories, not its text; or a
 # Period column, which Polars has no type for (a frame pandas made stays pandas then too)
 CATEGORY_HINTS = re.compile(r"categor|Categorical|cut\(|read_parquet|read_feather|read_pickle|"

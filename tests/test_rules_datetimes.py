@@ -733,3 +733,22 @@ df["h"] = d / np.timedelta64(1, "h")
 df["w"] = d / np.timedelta64(1, "W")
 result = df
 ''')
+
+
+def test_isocalendar_parts_with_a_missing_date_are_written_as_integers(tmp_path, monkeypatch) -> None:
+    # pandas' isocalendar() parts are nullable integers: to_csv writes 52 and an empty field
+    # (a plain integer column with a missing value would be float, 52.0)
+    source = (HEAD + 'df = pd.DataFrame({"day": ["2023-12-31", None, "2024-12-30"], "k": [1, 2, 3]})\n'
+              'df["day"] = pd.to_datetime(df["day"], format="%Y-%m-%d")\n'
+              'df["woy"] = df["day"].dt.isocalendar().week\n'
+              'df["yr"] = df["day"].dt.isocalendar().year\n'
+              'df.to_csv("out.csv", index=False)\n')
+    result = convert(source)
+    written = []
+    for side, text in (("pandas", source), ("polars", result.converted_text)):
+        (tmp_path / side).mkdir()
+        monkeypatch.chdir(tmp_path / side)
+        run(text)
+        written.append((tmp_path / side / "out.csv").read_text(encoding="utf-8"))
+    assert written[0] == written[1], result.converted_text
+    assert any(s.key == "series.dt.isocalendar.week" and s.confidence == 0.95 for s in result.sites)
