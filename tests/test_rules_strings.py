@@ -10,7 +10,7 @@ import pytest
 
 from porter.rules.strings import regex_issues
 from rule_checks import check_ports, check_todo, check_unchanged
-from support import convert, differential
+from support import convert, differential, run
 
 # Missing values (None and NaN), an empty string, accents, duplicates, a trailing newline, a
 # sign, regex and template metacharacters. "ß", ligatures and \x1c are known differences,
@@ -620,3 +620,17 @@ df["n"] = df["parts"].apply(lambda p: len(p) if isinstance(p, list) else -1)
 result = df
 """)
     assert '.map(list, na_action="ignore")' in result.converted_text, result.converted_text
+
+
+@pytest.mark.parametrize("call", ['str.len()', 'str.count("e")'])
+def test_counts_over_text_with_a_missing_value_are_float_in_pandas(call: str) -> None:
+    # pandas' count is float64 once a text is missing: its max prints 3.0 there, 3 here,
+    # so the conversion says so (lowered) rather than pass silently
+    source = ('import pandas as pd\ndf = pd.DataFrame({"name": ["abc", None, "dee"]})\n'
+              f'df["n"] = df["name"].{call}\nresult = repr(df["n"].max())\n')
+    pandas_value = run(source)["result"]
+    converted = convert(source)
+    assert pandas_value != run(converted.converted_text)["result"]  # the difference is real
+    key = "series.str.len" if "len" in call else "series.str.count"
+    assert any(s.key == key and s.confidence == 0.95 and "float64" in s.message
+               for s in converted.sites), converted.sites

@@ -29,6 +29,11 @@ from porter.translate.context import (
 from porter.translate.values import Column, Frame, Opaque, Parts, Value
 
 INT64 = emit.atom("pl.Int64")
+# pandas' counts over text are float64 once a value is missing (int64 otherwise); Polars keeps
+# Int64 with nulls, so a reduction of the column is an integer where pandas' is a float
+MISSING_MAKES_FLOAT = ("when a text value is missing, pandas' counts are float64: the column's "
+                       "min, max or sum is 3.0 in pandas and 3 here (to_csv and tolist() give "
+                       "pandas' floats)")
 LIST_STR = "list[str]"  # porter's dtype of a column of lists of text (str.split, str.findall)
 
 
@@ -250,10 +255,13 @@ def str_len(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: characters, not UTF-8 bytes ("Éclair" is 6); Int64 so arithmetic cannot wrap; the
     number of parts of a list (str.split(...).str.len()).
-    Caveats: pandas gives float64 when a value is missing, Polars Int64 with nulls.
+    Caveats: pandas gives float64 when a value is missing, Polars Int64 with nulls: the
+    column's min, max or sum prints 3.0 in pandas and 3 here (0.95; to_csv and tolist() give
+    pandas' floats).
     """
     column = accessor_column(call)
     ctx.reject_unknown(call)
+    ctx.lower(MISSING_MAKES_FLOAT, 0.95)
     if column.dtype == LIST_STR:
         return _result(column, column.code.attr("list").method("len").method("cast", INT64), "int")
     return _result(column, _text(column).method("len_chars").method("cast", INT64), "int")
@@ -584,10 +592,12 @@ def count(call: PandasCall, ctx: RuleContext) -> Value:
     a missing value stays missing.
     Caveats: a pattern that can match the empty string is a TODO (pandas counts empty matches
     at every byte with pyarrow, Python and Polars each otherwise); pandas gives float64 when a
-    value is missing, Polars Int64 with nulls.
+    value is missing, Polars Int64 with nulls: the column's min, max or sum prints 3.0 in pandas
+    and 3 here (0.95; to_csv and tolist() give pandas' floats).
     """
     column = text_column(call, ctx)
     ctx.reject_unknown(call, "pat", "flags", positional=2)
+    ctx.lower(MISSING_MAKES_FLOAT, 0.95)
     pattern, compiled = _pattern(call, ctx, 1, test=False)
     if _may_match_empty(compiled):
         raise ctx.todo(f"the pattern {compiled.pattern!r} can match the empty string: each "
