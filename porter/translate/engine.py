@@ -951,12 +951,15 @@ class _Walker:
             env[n] = PandasValue(emit.atom(n), frame=replace(frame, code=emit.atom(n), sites=()))
         lines.append(f"{name} = {self.services.code_for(expr)}")
         env[name] = PandasValue(emit.atom(name))
-        site = SiteDraft("frame.labels", "handover", "handover", 1.0,
+        # one marker for the statement, not one per call in it: each call is pandas' own
+        site = SiteDraft("frame.labels", "handover", "todo", 0.0,
                          f"pandas code reads the row labels of `{name}` later, which are the "
-                         "original row numbers after a filter or sort: pandas makes it",
+                         "original row numbers after a filter or sort: pandas makes it; to port "
+                         "it, keep the row number as a column (with_row_index) where the frame is "
+                         "read and use that column where the labels are read",
                          *self.services.statement_lines)
-        sites = [replace(x, status="todo", confidence=0.0,
-                         message="kept on pandas with the statement it is in")
+        sites = [replace(x, status="handover", confidence=1.0,
+                         message=f"made by pandas with `{name}`, for its row labels")
                  if x.status == "converted" else x for x in value.sites]
         return "\n".join(lines), [*sites, site]
 
