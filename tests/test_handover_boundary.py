@@ -686,3 +686,56 @@ def test_pivot_columns_named_by_the_script_keep_its_names_for_pandas_code(landin
         old = renamed[2023].tolist()
         now = renamed.to_dict()["now"]
     """, "latest", "old", "now", data_dir=".")
+
+
+# -- a function pandas maps over a column, whose values Polars cannot hold as pandas does -------
+
+@pytest.fixture
+def codes(tmp_path):
+    (tmp_path / "codes.csv").write_text(
+        "code,n,s\n12,1,x-y\nA7,2,it's-z\n3.5,3,\n,4,w\n", encoding="utf-8")
+
+
+@pytest.mark.parametrize("function, after", [
+    # a number or the text as it was: pandas keeps both in one object column
+    ("def f(c):\n    try:\n        return float(c)\n    except ValueError:\n        return c\n",
+     'df["kind"] = df["v"].map(lambda v: type(v).__name__)'),
+    # True/False beside a number: Polars would make True 1.0
+    ("def f(c):\n    if c == c and c[0].isdigit():\n        return 1.5\n    return False\n",
+     'df["m"] = df["n"] * 2'),
+    # lists of numbers, then .str[0] of them
+    ("def f(c):\n    return [len(c)] * 2 if c == c else []\n", 'df["first"] = df["v"].str[0]'),
+    ("", 'df["m"] = df["n"] + 1'),  # tuples: a lambda written in the call
+])
+def test_values_of_no_polars_type_keep_the_frame_on_pandas(codes, function, after):
+    mapped = "f" if function else "lambda c: (c, 1)"
+    text = differential(f"""
+import pandas as pd
+{function}
+df = pd.read_csv("codes.csv")
+df["v"] = df["code"].map({mapped})
+{after}
+df = df[df["n"] > 1]
+df.to_csv("out.csv", index=False)
+out = pd.read_csv("out.csv")
+""", "df", "out", data_dir=".").converted_text
+    assert "the frame stays pandas" in text
+
+
+def test_lists_of_text_made_by_pandas_come_back_as_lists(codes):
+    text = differential("""
+        import pandas as pd
+        def tags(v):
+            if v != v:
+                return None
+            return v.split("-")
+        df = pd.read_csv("codes.csv")
+        df["parts"] = df["s"].map(tags)
+        df["first"] = df["parts"].str[0]
+        df["count"] = df["parts"].str.len()
+        df["v"] = df["n"].apply(lambda x: x * 2 if x > 1 else 0.5)
+        df.to_csv("out.csv", index=False)
+        out = pd.read_csv("out.csv")
+        first = df["first"].tolist()
+    """, "out", "first", data_dir=".").converted_text
+    assert ".list.get(0" in text and "pl.Series(" in text

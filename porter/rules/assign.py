@@ -20,7 +20,7 @@ from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
     with_column_updates,
 )
-from porter.rules.strings import expanded_columns
+from porter.rules.strings import LIST_STR, expanded_columns
 from porter.translate.handover import makes_periods, orders_categories, text_categories
 from porter.translate.values import Column, Frame, Opaque, PandasValue, Parts, Scalar, Value
 
@@ -118,6 +118,8 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
             raise Unsupported("a Series computed by pandas whose rows porter cannot match to "
                               "the frame's (pandas aligns it on the index): the statement stays "
                               "pandas")
+        returned = returned_kinds(value, frame, ctx)
+        _check_polars_type(returned)
         ctx.needs_review("a Series computed by pandas, row for row from this frame, is put back "
                          "by position; port the computation to an expression")
         series = emit.call("pl.Series", value.code, nan_to_null=True)
@@ -125,8 +127,210 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
         if made is not None:
             # pandas sorts and groups a Categorical in its categories' order: an Enum of them
             return series.method("cast", emit.pl("Enum", list(made))), "enum"
+        if returned is not None and _families(returned) == {"list"} and returned <= {
+                LIST_STR, "none"}:
+            # lists of text, as str.split makes them: list.get for .str[i], and to_csv writes
+            # them as pandas does
+            return series, LIST_STR
         return series, None
     raise Unsupported("this value cannot be assigned as a column")
+
+
+# -- what a function pandas maps over a column returns -------------------------------------------
+#
+# pandas keeps whatever the function returns; pl.Series(...) gives it a Polars type, which only
+# exists when the values are of one kind: numbers (with missing ones), text, True/False, lists of
+# text. Read from the function's `return`s (the script's own function or a lambda), each kind:
+# "int", "float", "str", "bool", "none", "list[<kind of the items>]", "tuple", "dict", "set".
+
+FRAME_STAYS_PANDAS = "the frame stays pandas"
+_FAMILIES = {"int": "number", "float": "number", "str": "text", "bool": "True/False",
+             "tuple": "tuples", "dict": "dicts", "set": "sets"}
+_CONVERSIONS = {"float": "float", "int": "int", "str": "str", "repr": "str", "format": "str",
+                "bool": "bool", "len": "int", "isinstance": "bool", "callable": "bool",
+                "tuple": "tuple", "dict": "dict", "set": "set", "list": "list[?]",
+                "sorted": "list[?]"}
+_TEXT_METHODS = {"upper", "lower", "strip", "lstrip", "rstrip", "title", "capitalize",
+                 "casefold", "replace", "format", "join", "zfill", "center", "ljust", "rjust",
+                 "swapcase", "removeprefix", "removesuffix", "translate", "expandtabs"}
+_TEXT_TESTS = {"startswith", "endswith", "isdigit", "isalpha", "isalnum", "isnumeric",
+               "isdecimal", "isspace", "islower", "isupper", "istitle"}
+_TEXT_SPLITS = {"split", "rsplit", "splitlines"}
+
+
+def _families(kinds: frozenset[str]) -> set[str]:
+    """The kinds that cannot share a Polars column with each other (missing goes with any)."""
+    return {"list" if k.startswith("list[") else _FAMILIES[k] for k in kinds if k != "none"}
+
+
+def _check_polars_type(kinds: frozenset[str] | None) -> None:
+    """Unsupported (the statement and its frame stay pandas) when the values a function
+    returns have no Polars type porter can carry: pl.Series fails on mixed kinds (or turns
+    True into 1.0 beside a float), and lists of numbers, tuples, dicts and sets would reach
+    rules that take them for text."""
+    if kinds is None:
+        return
+    families = _families(kinds)
+    if len(families) > 1:
+        raise Unsupported(f"the function returns {' and '.join(sorted(families))} values: pandas "
+                          "keeps them in one object column, which has no Polars type: "
+                          + FRAME_STAYS_PANDAS)
+    nested = [k for k in kinds if k in ("tuple", "dict", "set")
+              or k.startswith("list[") and k != LIST_STR]
+    if nested:
+        raise Unsupported(f"the function returns {_FAMILIES.get(nested[0], 'lists')} (other than "
+                          "lists of text), which porter does not carry in a Polars column: "
+                          + FRAME_STAYS_PANDAS)
+
+
+def returned_kinds(value: PandasValue, frame: Frame, ctx: RuleContext) -> frozenset[str] | None:
+    """The kinds of value the function of a handed-over `s.map(f)` / `s.apply(f)` /
+    `df.apply(f, axis=1)` returns, as far as its `return`s tell; None when it is not such a
+    call or no return is read. A return porter cannot read is left out: the kinds read are
+    among what pandas gets."""
+    try:
+        node = ast.parse(value.code.text.strip(), mode="eval").body
+    except SyntaxError:
+        return None
+    if not (isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute)
+            and node.func.attr in ("map", "apply")):
+        return None
+    given = node.args[0] if node.args else next(
+        (k.value for k in node.keywords if k.arg in ("arg", "func")), None)
+    if isinstance(given, ast.Lambda):
+        params, returns = given.args.args, [given.body]
+    elif isinstance(given, ast.Name) and ctx.function_def is not None \
+            and isinstance(found := ctx.function_def(given.id), cst.FunctionDef):
+        try:
+            tree = ast.parse(cst.Module([]).code_for_node(found).strip())
+        except SyntaxError:
+            return None
+        function = tree.body[0]
+        assert isinstance(function, ast.FunctionDef)
+        params, returns = function.args.args, _returns_of(function)
+    else:
+        return None
+    if not params:
+        return None
+    param = params[0].arg
+    element = _element_kind(node.func.value, frame)
+    kinds: set[str] = set()
+    for expression in returns:
+        found_kinds = _kinds(expression, param, element)
+        if found_kinds is not None:
+            kinds |= found_kinds
+    return frozenset(kinds) if kinds else None
+
+
+def _returns_of(function: ast.FunctionDef) -> list[ast.expr]:
+    """The values a function's `return`s give (None for a bare one or for falling off the
+    end), not those of functions defined inside it."""
+    found: list[ast.expr] = []
+    pending: list[ast.AST] = list(function.body)
+    while pending:
+        node = pending.pop()
+        if isinstance(node, (ast.FunctionDef, ast.AsyncFunctionDef, ast.Lambda, ast.ClassDef)):
+            continue
+        if isinstance(node, ast.Return):
+            found.append(node.value if node.value is not None else ast.Constant(None))
+        pending.extend(ast.iter_child_nodes(node))
+    if not isinstance(function.body[-1], (ast.Return, ast.Raise)):
+        found.append(ast.Constant(None))  # it may fall off the end
+    return found
+
+
+def _element_kind(receiver: ast.expr, frame: Frame) -> str | None:
+    """The kind of one value the function is given: the type of the column whose hand-over is
+    `receiver` (porter wrote it: the same text as the column handed over again)."""
+    from porter.translate.context import column_of
+    from porter.translate.handover import to_pandas
+    text = ast.unparse(receiver)
+    names = frame.columns if frame.columns is not None else [
+        n.value for n in ast.walk(receiver) if isinstance(n, ast.Constant) and isinstance(n.value, str)]
+    for name in names:
+        kind = frame.dtype(name)
+        if kind not in ("int", "float", "str", "bool"):
+            continue
+        try:
+            written = ast.unparse(ast.parse(to_pandas(column_of(frame, name)).text, mode="eval").body)
+        except SyntaxError:
+            continue
+        if written == text:
+            return kind
+    return None
+
+
+def _kinds(node: ast.expr, param: str, element: str | None) -> set[str] | None:
+    """The kinds of value `node` can be, one value `param` of kind `element` given; None when
+    porter cannot tell."""
+    def of(child: ast.expr) -> set[str] | None:
+        return _kinds(child, param, element)
+
+    if isinstance(node, ast.Constant):
+        kind = {type(None): "none", bool: "bool", int: "int", float: "float",
+                str: "str"}.get(type(node.value))
+        return {kind} if kind else None
+    if isinstance(node, ast.JoinedStr):
+        return {"str"}
+    if isinstance(node, ast.Name):
+        return {element} if node.id == param and element else None
+    if isinstance(node, ast.Attribute) and node.attr == "nan" and isinstance(node.value, ast.Name) \
+            and node.value.id in ("np", "numpy", "math"):
+        return {"float"}
+    if isinstance(node, ast.Compare) or isinstance(node, ast.UnaryOp) and isinstance(node.op, ast.Not):
+        return {"bool"}
+    if isinstance(node, ast.BoolOp):  # `a or b` is one of them
+        operands = [of(v) for v in node.values]
+        return set().union(*operands) if all(k is not None for k in operands) else None  # type: ignore[arg-type]
+    if isinstance(node, ast.UnaryOp) and isinstance(node.op, (ast.USub, ast.UAdd)):
+        operand = of(node.operand)
+        return operand if operand is not None and operand <= {"int", "float"} else None
+    if isinstance(node, ast.IfExp):
+        body, orelse = of(node.body), of(node.orelse)
+        return body | orelse if body is not None and orelse is not None else None
+    if isinstance(node, (ast.Tuple, ast.Dict, ast.DictComp, ast.Set, ast.SetComp)):
+        return {{ast.Tuple: "tuple", ast.Dict: "dict", ast.DictComp: "dict"}.get(type(node), "set")}
+    if isinstance(node, ast.List):
+        items = [of(e) for e in node.elts]
+        return {_list_of(items)}
+    if isinstance(node, ast.ListComp):
+        return {_list_of([of(node.elt)])}
+    if isinstance(node, ast.BinOp):
+        left, right = of(node.left), of(node.right)
+        if left is None or right is None or len(left) != 1 or len(right) != 1:
+            return None
+        a, b = next(iter(left)), next(iter(right))
+        if isinstance(node.op, ast.Mult) and a.startswith("list[") and b == "int":
+            return {a}
+        if isinstance(node.op, ast.Add) and a == b and (a == "str" or a.startswith("list[")):
+            return {a}
+        if a in ("int", "float") and b in ("int", "float"):
+            if isinstance(node.op, ast.Div) or "float" in (a, b):
+                return {"float"}
+            return {"int"} if isinstance(node.op, (ast.Add, ast.Sub, ast.Mult, ast.FloorDiv,
+                                                   ast.Mod)) else None
+        return None
+    if isinstance(node, ast.Call):
+        func = node.func
+        if isinstance(func, ast.Name) and func.id in _CONVERSIONS:
+            return {_CONVERSIONS[func.id]}
+        if isinstance(func, ast.Attribute):
+            receiver = of(func.value)
+            if func.attr in _TEXT_SPLITS:
+                return {LIST_STR}  # text's own method: a list of text
+            if receiver == {"str"}:
+                if func.attr in _TEXT_METHODS:
+                    return {"str"}
+                if func.attr in _TEXT_TESTS:
+                    return {"bool"}
+    return None
+
+
+def _list_of(items: list[set[str] | None]) -> str:
+    """The kind of a list whose items have these kinds."""
+    kinds = set().union(*(k for k in items if k is not None)) - {"none"} \
+        if all(k is not None for k in items) else None
+    return f"list[{next(iter(kinds))}]" if kinds is not None and len(kinds) == 1 else "list[?]"
 
 
 def made_categories(text: str) -> tuple[str, ...] | None:
@@ -207,8 +411,13 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
     """df["c"] = expr -> df = df.with_columns(c=expr).
 
     Handles: a comparison that met a missing value is stored as False, like pandas; one value
-    into several columns (df[["a", "b"]] = 0).
-    Caveats: a Series from another frame aligns on the index in pandas: a TODO.
+    into several columns (df[["a", "b"]] = 0); a Series pandas computed row for row (a map or
+    apply under a TODO) put back by position, lists of text it returns kept lists.
+    Caveats: a Series from another frame aligns on the index in pandas: a TODO. A function
+    pandas maps whose `return`s give values of several kinds (number and text), lists of
+    other values, tuples, dicts or sets keeps the statement and the frame on pandas (Polars
+    has no column that holds them as pandas does); returns porter cannot read are taken to
+    fit the others.
     """
     frame = call.receiver
     assert isinstance(frame, Frame)

@@ -21,7 +21,7 @@ from porter.translate.functions import (
     COLUMNS, EXPRESSION_ROWS, discover_functions, function_definitions, learn_functions,
     marked_as_applied, ported_where_applied, removed_note,
 )
-from porter.rules.assign import INTERVAL_MAKERS
+from porter.rules.assign import FRAME_STAYS_PANDAS, INTERVAL_MAKERS
 from porter.translate.writes import batch_writes, is_sink_text
 from porter.translate.context import PandasCall, grouping_code
 from porter.translate.evaluate import Evaluator, Services, parts_current
@@ -872,7 +872,9 @@ class _Walker:
         if not isinstance(result, PandasValue):
             return self.bind(name, result, env, indent)
         statement = self.current_small
-        intervals = any(site.key in INTERVAL_MAKERS for site in result.sites)
+        intervals = any(site.key in INTERVAL_MAKERS for site in result.sites) or any(
+            site.key == "frame.setitem" and FRAME_STAYS_PANDAS in site.message
+            for site in result.sites)  # values Polars has no type for (rules/assign.py)
         # a frame given pandas' Interval values stays pandas (Polars has no type for them)
         env[name] = PandasValue(emit.atom(name),
                                 frame=None if intervals else _after_change(
