@@ -117,3 +117,17 @@ df = df.sort_values("cars")
 totals = df.groupby("leg")["cars"].sum()
 """)
     assert "to_pandas" not in result.converted_text, result.converted_text
+
+
+def test_a_loop_whose_body_has_pandas_make_a_frame_reads_it_in_its_header_too() -> None:
+    # the body's filter is made by pandas, so the frame is handed over before the loop; the
+    # loop's own header runs after that and must read the pandas frame (it had stayed a
+    # Polars expression on a pandas frame: unhashable type 'Expr')
+    differential(HEAD + """\
+df["fare"] = df["fare"].fillna(0)
+rows = []
+for leg in sorted(df["leg"].unique()):
+    sub = df[df["leg"] == leg]
+    rows.append({"leg": leg, "cars": sub["cars"].sum(), "top": sub.sort_values("cars").iloc[-1]["boat"]})
+result = pd.DataFrame(rows)
+""")

@@ -338,6 +338,7 @@ class _Walker:
                 rest = [cst.parse_statement(line + "\n") for line in handed[1:]]
                 return [first, *rest, new[0].with_changes(leading_lines=()), *new[1:]], after
         changes: dict[str, Any] = {}
+        header_from, header_sites_from = len(self.sites), len(self.header_sites)
         if isinstance(stmt, cst.For):
             iter_value = self.evaluate(stmt.iter, env)
             if isinstance(iter_value, Column):
@@ -354,7 +355,7 @@ class _Walker:
         self.loop_depth += 1
         # A second round through the body sees what the first round changed.
         emit_code, self.emit_code = self.emit_code, False
-        saved = len(self.sites)
+        saved, header_sites_to = len(self.sites), len(self.header_sites)
         _, after = self.indented(stmt.body, loop_env, unit, indent)
         first_todos = [site for site in self.sites[saved:] if site.status == "todo"]
         del self.sites[saved:]
@@ -371,6 +372,18 @@ class _Walker:
                 self.note_handed_over(name, value)
                 line = f"{name} = {handover.to_pandas(value).text}\n"
                 before.append(cst.parse_statement(line))
+        if handed:
+            # the header runs after the hand-over too: it reads the pandas frames
+            header_env = {**env, **{name: PandasValue(emit.atom(name)) for name in handed}}
+            del self.sites[header_from:saved]
+            del self.header_sites[header_sites_from:header_sites_to]
+            if isinstance(stmt, cst.For):
+                iter_value = self.evaluate(stmt.iter, header_env)
+                if isinstance(iter_value, Column):
+                    iter_value = replace(iter_value, code=handover.to_pandas(iter_value))
+                changes["iter"] = self.header(stmt.iter, header_env, stmt, iter_value)
+            else:
+                changes["test"] = self.header(stmt.test, header_env, stmt)
         body, after = self.indented(stmt.body, widened, unit, indent)
         self.loop_depth -= 1
         changes["body"] = body
