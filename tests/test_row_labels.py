@@ -131,3 +131,21 @@ for leg in sorted(df["leg"].unique()):
     rows.append({"leg": leg, "cars": sub["cars"].sum(), "top": sub.sort_values("cars").iloc[-1]["boat"]})
 result = pd.DataFrame(rows)
 """)
+
+
+def test_a_merge_left_on_pandas_after_a_filter_keeps_the_filter_on_polars() -> None:
+    # a merge numbers its rows afresh: the filtered frame's labels are not read
+    result = differential(HEAD + """\
+boats = pd.DataFrame({"boat": ["Orm", "Skarv", "Lunde"], "crew": [3, 2, 4]})
+pos = df[df["cars"] > 0]
+result = pos.merge(boats, on="boat", how="outer", indicator=True)
+""")
+    assert "frame.labels" not in {s.key for s in result.sites}
+
+
+def test_a_merge_on_the_index_after_a_filter_uses_pandas_labels() -> None:
+    differential(HEAD + """\
+boats = pd.DataFrame({"crew": [3, 2, 4, 1, 5, 6, 7]})
+pos = df[df["cars"] > 0]
+result = pos.merge(boats, left_index=True, right_index=True, how="left", indicator=True)
+""")

@@ -755,7 +755,9 @@ class Evaluator:
                          line, end_line, suggestion)
         fallback = handover.pandas_fallback(call, self.source, node)
         self.note_alignment(key, call)
-        if key not in _ELEMENT_CALLS and not (key == "frame.apply" and self.rows_without_labels(call)):
+        labels_unread = key in _LABELS_NOT_READ and not {"left_index", "right_index"} & set(call.kwargs)
+        if key not in _ELEMENT_CALLS and not labels_unread \
+                and not (key == "frame.apply" and self.rows_without_labels(call)):
             self.note_handed_over(call.receiver)
         sites = _child_sites(call, None) + (site,)
         if (call.receiver is None and entry is not None and entry.extra.get("returns") == "frame"
@@ -867,6 +869,16 @@ _LABEL_READERS = frozenset({
 
 # calls whose function sees one value at a time (never a label)
 _ELEMENT_CALLS = frozenset({"series.apply", "series.map", "frame.map", "frame.applymap"})
+
+# calls left on pandas whose result neither shows nor uses the receiver's row labels (a merge
+# numbers its rows afresh; a summary is labelled by keys, values or column names)
+_LABELS_NOT_READ = frozenset({
+    "frame.merge", "pd.merge", "pd.crosstab", "frame.pivot_table", "pd.pivot_table",
+    "frame.describe", "series.describe", "frame.info", "series.value_counts",
+    "frame.value_counts", "frame.nunique", "series.nunique", "frame.corr", "frame.cov",
+    "series.mode", "frame.mode", "series.unique", "frame.to_numpy", "series.to_numpy",
+    "series.tolist", "series.to_list", "frame.memory_usage", "frame.dtypes",
+})
 
 
 def _only_by_column(body: cst.CSTNode, param: str) -> bool:
