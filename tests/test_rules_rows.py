@@ -322,3 +322,28 @@ def test_series_rank_ports() -> None:
 ])
 def test_series_rank_todo(before: str) -> None:
     check_todo(RANK_FRAME + before + "\n", "series.rank")
+
+
+# -- duplicated ---------------------------------------------------------------------------------
+
+@pytest.mark.parametrize("snippet", [
+    # None and NaN keys count as one value, as pandas counts them
+    'result = df[df.duplicated(subset=["k"])]',
+    'result = df[df.duplicated(subset="k", keep="last")]',
+    'result = df[df.duplicated(["k", "v"], keep=False)]',
+    'result = df[~df.duplicated(["k", "v"])]',
+    'result = df.assign(dup=df.duplicated())',
+    'result = int(df.duplicated(subset=["v"]).sum())',
+    'result = df["k"].duplicated().tolist()',
+    'result = df[df["v"].duplicated(keep=False)]',
+    'result = df[df["k"].duplicated(keep="last")]["n"].tolist()',
+    'result = df[df["n"] > 100].duplicated().sum()',
+])
+def test_duplicated_matches_pandas(snippet: str) -> None:
+    result = differential(FRAME + snippet + "\n")
+    assert not result.todos, result.converted_text
+
+
+def test_duplicated_of_a_whole_frame_needs_its_columns() -> None:
+    text = check_ports(FRAME + 'r = df.duplicated()\n', "pl.struct(pl.col(\"k\"), pl.col(\"v\"), pl.col(\"n\"))")
+    assert ".is_first_distinct().not_()" in text

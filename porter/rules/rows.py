@@ -1,5 +1,5 @@
-"""Row operations: drop_duplicates, sort_values, nlargest / nsmallest, reset_index, isin,
-between, replace."""
+"""Row operations: drop_duplicates, duplicated, sort_values, nlargest / nsmallest, reset_index,
+isin, between, replace."""
 
 from __future__ import annotations
 
@@ -9,7 +9,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import (
-    PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
+    PandasCall, RuleContext, Unsupported, column_names, column_of, derive, derived_column,
 )
 from porter.translate.values import Column, Frame, Opaque, Value
 
@@ -34,6 +34,50 @@ def drop_duplicates(call: PandasCall, ctx: RuleContext) -> Value:
     args = [emit.names_arg(column_names(subset, "subset"))] if subset else []
     code = frame.code.method("unique", *args, keep=KEEP[keep], maintain_order=True)
     return derive(frame, code, same_rows=False, labels_intact=bool(call.const("ignore_index", None, False)))
+
+
+@rule("frame.duplicated", "series.duplicated")
+def duplicated(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.duplicated(subset, keep) / s.duplicated(keep) -> a True/False column:
+    ~is_first_distinct() (keep="first"), ~is_last_distinct() ("last"), is_duplicated() (False);
+    several columns as one pl.struct.
+
+    Handles: missing values are equal to each other, as in pandas; every column when subset
+    is left out (the frame's columns must be known); the result has the frame's rows.
+    Caveats: a frame with an index of its own (pandas leaves the index out) is a TODO.
+    """
+    receiver = call.receiver
+    if isinstance(receiver, Frame):
+        ctx.reject_unknown(call, "subset", "keep", positional=2)
+        frame = receiver
+        if frame.index:
+            raise Unsupported("a frame with an index of its own")
+        subset = call.const("subset", 0, None)
+        names = column_names(subset, "subset") if subset is not None else list(frame.columns or ())
+        if not names:
+            raise Unsupported("the frame's columns are not known (pass subset=[...])")
+        absent = [n for n in names if frame.columns is not None and n not in frame.columns]
+        if absent:
+            raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
+        columns = [column_of(frame, n) for n in names]
+        key = columns[0].code if len(columns) == 1 else emit.pl("struct", *(c.code for c in columns))
+        keep = call.const("keep", 1, "first", kinds=(str, bool))
+        base = Column(emit.pl("lit", None), frame=frame, name=None)
+    else:
+        assert isinstance(receiver, Column)
+        ctx.reject_unknown(call, "keep", positional=1)
+        columns, key, base = [], receiver.code, receiver
+        keep = call.const("keep", 0, "first", kinds=(str, bool))
+    if keep == "first":
+        code = key.method("is_first_distinct").method("not_")
+    elif keep == "last":
+        code = key.method("is_last_distinct").method("not_")
+    elif keep is False:
+        code = key.method("is_duplicated")
+    else:
+        raise Unsupported(f"keep={keep!r} (pandas raises)")
+    return derived_column(base, code, dtype="bool", name=None if isinstance(receiver, Frame)
+                          else receiver.name, others=columns)
 
 
 def sort_args(by: list[Any], ascending: Any, na_position: str) -> dict[str, object]:
