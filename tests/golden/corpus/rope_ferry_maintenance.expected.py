@@ -225,6 +225,7 @@ print(
         lines.filter(pl.col("supplier").is_null() & pl.col("part").is_not_null())
         .select(pl.col("part").unique(maintain_order=True))
         .collect()
-        .to_series(),
+        .to_series()
+        .to_numpy(),
     ),
 )
