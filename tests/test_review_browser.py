@@ -28,10 +28,10 @@ df.to_csv("out.csv", index=False)
 WITH_TODOS = '''import pandas as pd
 
 df = pd.read_csv("data/loans.csv")
-df = df[df["days"] > 14]
 wide = df.pivot_table(index="branch", columns="month", values="days", margins=True)
 for _, row in df.iterrows():
     print(row["member"])
+df = df[df["days"] > 14]
 df.sort_values("days").to_csv("late.csv", index=False)
 '''
 
