@@ -26,7 +26,7 @@ from porter.translate.rewrite import BINARY_OPS, ChildRewriter, precedence
 from porter.translate.context import PandasCall, RuleContext, Unsupported, derived_column
 from porter.translate.values import (
     MISSING, Accessor, BoundMethod, Column, Frame, Grouped, Indexer, Items, Module, Opaque,
-    PandasValue, Parts, Scalar, Value, fresh_token, is_pandas,
+    PandasValue, Parts, Resampled, Scalar, TimeGrouperSpec, Value, fresh_token, is_pandas,
 )
 
 COMPARE_OPS = {
@@ -302,6 +302,12 @@ class Evaluator:
                 return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
             return self.dispatch("groupby.getitem", PandasCall(
                 receiver, "getitem", (Opaque(emit.lit(name), const=name),), node=node), node)
+        if isinstance(receiver, Resampled):  # df.resample(...) / groupby with a pd.Grouper
+            if name in pandas_names.GROUPBY or name in _RESAMPLER_METHODS:
+                return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
+            if name in (receiver.frame.columns or ()):  # r.kg: the column, as r["kg"]
+                return self.dispatch("resample.getitem", PandasCall(
+                    receiver, "getitem", (Opaque(emit.lit(name), const=name),), node=node), node)
         if isinstance(receiver, Accessor):
             names = pandas_names.STR if receiver.kind == "str" else \
                 _WINDOW_METHODS if receiver.kind in handover.WINDOW_KINDS else pandas_names.DT
@@ -309,7 +315,7 @@ class Evaluator:
                 return self.dispatch(f"series.dt.{name}", PandasCall(receiver, name, node=node), node)
             if name in names:
                 return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
-        if isinstance(receiver, (Column, Frame, Grouped, Accessor, Indexer)):
+        if isinstance(receiver, (Column, Frame, Grouped, Accessor, Indexer, Resampled)):
             return self.todo(f"{_prefix(receiver)}.{name}", PandasCall(receiver, name, node=node),
                              node, "porter has no rule for this attribute")
         if isinstance(receiver, Scalar) and receiver.pytype == "list[str]":
@@ -453,6 +459,8 @@ class Evaluator:
         if isinstance(func, BoundMethod):
             key = f"{_prefix(func.receiver)}.{func.name}"
             call = PandasCall(func.receiver, func.name, positional, keywords, node)
+            if key == "frame.groupby" and _groups_by_time(call):
+                key = "frame.groupby.grouper"  # time bins among the keys (rules/resample.py)
         else:
             key = _module_key(func.qualname)
             call = PandasCall(None, func.qualname.rsplit(".", 1)[-1], positional, keywords, node)
@@ -591,7 +599,7 @@ class Evaluator:
             if isinstance(key, Column) and key.element:
                 call = PandasCall(key, "lookup", (receiver,), node=node)
                 return self.dispatch("element.lookup", call, node)
-        if not isinstance(receiver, (Frame, Column, Grouped, Indexer, Accessor, Parts)):
+        if not isinstance(receiver, (Frame, Column, Grouped, Indexer, Accessor, Parts, Resampled)):
             return self.generic(node)
         keys: list[Value] = []
         for element in node.slice:
@@ -993,6 +1001,19 @@ def _row_wise(call: PandasCall) -> bool:
     return isinstance(axis, Opaque) and axis.const in (1, "columns")
 
 
+# methods of pandas' Resampler beside the GroupBy ones (keys `resample.<method>`)
+_RESAMPLER_METHODS = frozenset({"asfreq", "interpolate", "nearest", "fillna", "backfill", "pad"})
+
+
+def _groups_by_time(call: PandasCall) -> bool:
+    """df.groupby(pd.Grouper(key=..., freq=...)) or a list of keys holding one."""
+    by = call.kwargs.get("by", call.args[0] if call.args else None)
+    if not (isinstance(by, Opaque) and by.is_const):
+        return False
+    keys = by.const if isinstance(by.const, (list, tuple)) else [by.const]
+    return any(isinstance(k, TimeGrouperSpec) for k in keys)
+
+
 # SeriesGroupBy methods that a DataFrameGroupBy does not have (a column of the name wins there)
 _SERIES_GROUPBY_ONLY = frozenset({"dtype", "is_monotonic_decreasing", "is_monotonic_increasing",
                                   "nlargest", "nsmallest", "unique"})
@@ -1042,6 +1063,8 @@ def _module_key(qualname: str) -> str:
 
 
 def _getitem_key(receiver: Value, key: Value) -> str:
+    if isinstance(receiver, Resampled):
+        return "resample.getitem"
     if isinstance(receiver, Grouped):
         return "groupby.getitem"
     if isinstance(receiver, Parts):

@@ -227,7 +227,50 @@ class BoundMethod(Value):
     name: str = field(kw_only=True)
 
 
-PANDAS_KINDS = (Frame, Column, Grouped, Accessor, Indexer, Items, BoundMethod, Parts)
+@dataclass(frozen=True)
+class TimeGrouperSpec:
+    """What `pd.Grouper(key="ts", freq="D")` says, kept as the constant of the Opaque value
+    the call evaluates to (rules/resample.py), so it survives a list (`["station", grouper]`)
+    and a name. `source` is the call as written: its repr, so a list of keys holding one is
+    written out as pandas code again."""
+
+    key: str
+    freq: str
+    source: str
+
+    def __repr__(self) -> str:
+        return self.source
+
+
+@dataclass(frozen=True)
+class Resampled(Value):
+    """`df.resample(rule, on="ts")` or `df.groupby([..., pd.Grouper(key="ts", freq=rule)])`,
+    waiting for its aggregation (keys `resample.<method>`, rules/resample.py). `code` is the
+    pandas object itself (the frame handed over, resampled or grouped the same way), so code
+    porter does not port gets what pandas made; `frame` is the Polars side.
+
+    keys      the group keys in order, the time column among them (the bins' labels)
+    time      the time column, grouped by bins of `freq`
+    fill      pandas makes every bin between the first and the last (resample, or a groupby
+              on the Grouper alone); beside other keys it makes only the bins rows fall in
+    time_order
+              each bin's rows are in time order (first / last read it), as resample and a
+              groupby on a Grouper not in a list sort them; in a list they keep the frame's
+    """
+
+    frame: Frame = field(kw_only=True)
+    keys: tuple[str, ...] = field(kw_only=True)
+    time: str = field(kw_only=True)
+    freq: str = field(kw_only=True)
+    fill: bool = field(kw_only=True)
+    time_order: bool = field(default=True, kw_only=True)
+    as_index: bool = field(default=True, kw_only=True)
+    selection: tuple[str, ...] | None = field(default=None, kw_only=True)
+    single: bool = field(default=False, kw_only=True)
+    key_prefix: str = field(default="resample", kw_only=True)
+
+
+PANDAS_KINDS = (Frame, Column, Grouped, Accessor, Indexer, Items, BoundMethod, Parts, Resampled)
 
 
 def is_pandas(value: Value) -> bool:

@@ -1,0 +1,470 @@
+"""Time bins: `df.resample(rule, on="ts")` and `df.groupby([..., pd.Grouper(key="ts",
+freq=rule)])` followed by an aggregation (sum, mean, count, size, agg, ...).
+
+Each row's bin is a Polars expression of its timestamp that gives the bin's label as pandas
+labels it, so the rows are grouped by the label (group_by, not group_by_dynamic: pandas' bins
+do not overlap and a row falls in exactly one). pandas' defaults are kept:
+
+- fixed-length rules (D, nD, h, nh, min, s) are closed and labelled on the left, their bins
+  counted from midnight of the first timestamp's day (origin="start_day"): a `dt.truncate`
+  where the length divides a day (the bins are then the same from any midnight), otherwise
+  the first midnight plus whole bins;
+- W-XXX, ME, QE, YE are closed and labelled on the right, and pandas moves the right edge to
+  the end of that day, so a row belongs to its date's period whatever its time of day
+  (Sunday 12:00 is in the week ending that Sunday); MS, QS, YS are closed and labelled on the
+  left;
+- rows with a missing timestamp are left out, the result is ordered by the label;
+- resample and a groupby on a Grouper given alone sort the rows by time (stably) before they
+  bin them, so first / last are the earliest / latest values of a bin; a Grouper in a list
+  keeps the frame's order (pandas 3.1 does so);
+- resample (and a groupby on the Grouper alone) makes every bin between the first and the last:
+  the labels are made with `pl.datetime_ranges` and the aggregates joined onto them, empty bins
+  filled as pandas fills them (0 for sum, count, size and nunique, '' for the sum of text,
+  missing otherwise); beside other keys pandas makes only the bins rows fall in.
+
+The result keeps the time column's name; pandas holds it (with the other keys) in the index,
+which the frame records (Frame.index), as for a groupby's result.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, replace
+import re
+from typing import Any
+
+from porter.emit import code as emit
+from porter.emit.code import Code
+from porter.rules import rule
+from porter.rules.groupby import agg_dtype, agg_expr, how_name
+from porter.translate import handover
+from porter.translate.context import PandasCall, RuleContext, Unsupported, column_names
+from porter.translate.values import (
+    Column, Frame, Opaque, Resampled, TimeGrouperSpec, Value, fresh_token,
+)
+
+RESAMPLE_AGGREGATIONS = ("sum", "mean", "median", "min", "max", "count", "size", "first", "last",
+                         "nunique", "std", "var")
+# aggregations whose empty bin pandas fills with 0 (the sum with its default min_count=0)
+_ZERO_WHEN_EMPTY = {"sum", "count", "size", "nunique"}
+
+# fixed-length rules: pandas' alias -> (Polars' duration unit, pl.duration's keyword,
+# Duration's total_* method, seconds)
+_TICKS = {"D": ("d", "days", "total_days", 86400), "h": ("h", "hours", "total_hours", 3600),
+          "min": ("m", "minutes", "total_minutes", 60), "s": ("s", "seconds", "total_seconds", 1)}
+_WEEKDAYS = {"MON": 1, "TUE": 2, "WED": 3, "THU": 4, "FRI": 5, "SAT": 6, "SUN": 7}  # Polars' numbers
+# pandas 3.1 rejects these spellings (ValueError): the script fails there as written
+_REJECTED = {"M": "ME", "H": "h", "Q": "QE", "Y": "YE", "A": "YE", "T": "min", "S": "s",
+             "BM": "BME", "BQ": "BQE", "BY": "BYE", "BA": "BYE", "SM": "SME", "L": "ms", "U": "us",
+             "N": "ns"}
+_ANCHORED = {
+    # rule: (label of a timestamp t from its period's start, range interval, end-anchored)
+    "MS": ("1mo", 1, False), "ME": ("1mo", 1, True),
+    "QS": ("1q", 3, False), "QS-JAN": ("1q", 3, False), "QS-APR": ("1q", 3, False),
+    "QS-JUL": ("1q", 3, False), "QS-OCT": ("1q", 3, False),
+    "QE": ("1q", 3, True), "QE-DEC": ("1q", 3, True), "QE-MAR": ("1q", 3, True),
+    "QE-JUN": ("1q", 3, True), "QE-SEP": ("1q", 3, True),
+    "YS": ("1y", 12, False), "YS-JAN": ("1y", 12, False),
+    "YE": ("1y", 12, True), "YE-DEC": ("1y", 12, True),
+}
+
+
+@dataclass(frozen=True)
+class Bins:
+    """How a rule's bins are written in Polars."""
+
+    freq: str
+    closed: str  # pandas' default closed= and label= for the rule
+    label: Any  # (time column code) -> the bin label of each row
+    interval: str  # pl.datetime_ranges' interval between two labels (or two periods' starts)
+    end_anchored: bool = False  # labels are month ends: the range runs over the months' starts
+
+    def labels(self, time: Code) -> Code:
+        return self.label(time)
+
+    def every_label(self, time: str) -> Code:
+        """Every label from the first to the last, as one column named `time`."""
+        first, last = emit.col(time).method("min"), emit.col(time).method("max")
+        if self.end_anchored:
+            first, last = first.attr("dt").method("month_start"), last.attr("dt").method("month_start")
+        code = emit.pl("datetime_ranges", first, last, self.interval).method("explode") \
+            .method("drop_nulls")
+        if self.end_anchored:
+            code = code.attr("dt").method("month_end")
+        return code.method("alias", time)
+
+
+def bins_of(freq: object) -> Bins:
+    """The bins of a rule pandas 3.1 reads, or a TODO saying why not."""
+    if not isinstance(freq, str):
+        raise Unsupported("the rule must be written out as text (an offset object or a "
+                          "Timedelta is not read by porter)")
+    match = re.fullmatch(r"(\d*)(D|h|min|s)", freq)
+    if match:
+        n = int(match.group(1) or 1)
+        if n < 1:
+            raise Unsupported(f"rule {freq!r}")
+        unit, keyword, total, seconds = _TICKS[match.group(2)]
+        length = n * seconds
+        if 86400 % length == 0:
+            # bins that divide a day are the same counted from any midnight (pandas counts
+            # from the first timestamp's, dt.truncate from 1970-01-01's)
+            return Bins(freq, "left", lambda t: t.attr("dt").method("truncate", f"{n}{unit}"),
+                        f"{n}{unit}")
+
+        def counted(t: Code) -> Code:
+            # pandas' origin="start_day": whole bins from midnight of the first timestamp's day
+            origin = t.method("min").attr("dt").method("truncate", "1d")
+            elapsed = emit.binop(t, "-", origin).attr("dt").method(total)
+            whole = emit.binop(emit.binop(elapsed, "//", n), "*", n)
+            return emit.binop(origin, "+", emit.pl("duration", **{keyword: whole}))
+        return Bins(freq, "left", counted, f"{n}{unit}")
+    week = re.fullmatch(r"W(?:-(MON|TUE|WED|THU|FRI|SAT|SUN))?", freq)
+    if week:
+        target = _WEEKDAYS[week.group(1) or "SUN"]
+
+        def week_end(t: Code) -> Code:
+            # the week ending on the target day that holds the row's date (the right edge
+            # covers that whole day in pandas)
+            days = emit.binop(emit.binop(target, "-", t.attr("dt").method("weekday")), "%", 7)
+            return emit.binop(t.attr("dt").method("truncate", "1d"), "+", emit.pl("duration", days=days))
+        return Bins(freq, "right", week_end, "1w")
+    if freq in _ANCHORED:
+        period, months, end = _ANCHORED[freq]
+
+        def anchored(t: Code) -> Code:
+            start = t.attr("dt").method("truncate", period)
+            if not end:
+                return start
+            if months > 1:
+                start = start.attr("dt").method("offset_by", f"{months - 1}mo")
+            return start.attr("dt").method("month_end")  # the period's last day, at midnight
+        return Bins(freq, "right" if end else "left", anchored, f"{months}mo", end_anchored=end)
+    if freq in _REJECTED:
+        raise Unsupported(f"pandas 3.1 rejects the rule {freq!r} (ValueError); "
+                          f"{_REJECTED[freq]!r} is its spelling now")
+    raise Unsupported(f"rule {freq!r}: porter ports D, h, min, s (and multiples), W / W-XXX, "
+                      "MS, ME, QS, QE, YS, YE (business days, semi-months, multiples of weeks "
+                      "or months and lower-case spellings are not ported)")
+
+
+def _check_options(call: PandasCall, bins: Bins) -> None:
+    """closed=, label= and origin= as pandas' defaults for the rule; anything else is a TODO."""
+    for name in ("closed", "label"):
+        value = call.const(name, None, None)
+        if value is not None and value != bins.closed:
+            raise Unsupported(f"{name}={value!r} (porter ports the rule's default, "
+                              f"{bins.closed!r})")
+    origin = call.const("origin", None, "start_day")
+    if origin != "start_day":
+        raise Unsupported(f"origin={origin!r} (porter ports the default, 'start_day')")
+
+
+# -- making the resampler ------------------------------------------------------------------------
+
+@rule("frame.resample")
+def resample(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.resample(rule, on="ts") -> time bins waiting for an aggregation (`resample.sum` ...).
+
+    Handles: the rules D, h, min, s and their multiples, W / W-XXX, MS, ME, QS, QE, YS, YE
+    with pandas' closed= and label= (given or not) and origin="start_day".
+    Caveats: resampling the index (no on=), other closed / label / origin, offset=,
+    convention=, kind=, group_keys= and business-day rules are TODOs.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "rule", "on", "closed", "label", "origin", positional=1)
+    if not call.has("on"):
+        raise ctx.todo("resampling the index: porter ports resample(rule, on=column)")
+    on = call.const("on", None, kinds=(str,))
+    bins = bins_of(call.const("rule", 0))
+    _check_options(call, bins)
+    if frame.index:
+        raise ctx.todo("the frame keeps an index (after a groupby): call reset_index() first")
+    pandas = handover.to_pandas(frame).method(
+        "resample", bins.freq, on=on,
+        **{k: call.const(k, None) for k in ("closed", "label", "origin") if call.has(k)})
+    return Resampled(pandas, frame=frame, keys=(on,), time=on, freq=bins.freq, fill=True)
+
+
+@rule("pd.Grouper")
+def grouper(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.Grouper(key="ts", freq=rule) -> what groupby reads to group by time bins.
+
+    Handles: a column and a rule as df.resample reads them.
+    Caveats: level=, a Grouper without freq (a plain key), closed / label / origin other than
+    the rule's defaults, offset=, sort=, dropna= and convention= are TODOs.
+    """
+    ctx.reject_unknown(call, "key", "freq", "closed", "label", "origin", positional=1)
+    key = call.const("key", 0, None, kinds=(str,))
+    if key is None:
+        raise ctx.todo("a Grouper of the index (no key=): porter ports key=column")
+    if not call.has("freq"):
+        raise ctx.todo("a Grouper without freq= groups by the column's values")
+    bins = bins_of(call.const("freq", None))
+    _check_options(call, bins)
+    if call.node is None:
+        raise ctx.todo("the Grouper's text is not known")
+    spec = TimeGrouperSpec(key, bins.freq, _grouper_source(call, key, bins.freq))
+    return Opaque(emit.atom(spec.source), const=spec)
+
+
+def _grouper_source(call: PandasCall, key: str, freq: str) -> str:
+    """pd.Grouper(...) as pandas code: the script's own name for the module, the arguments."""
+    node = call.node
+    func = getattr(node, "func", None)
+    parts = []
+    while func is not None and hasattr(func, "attr"):
+        parts.append(func.attr.value)
+        func = func.value
+    if func is not None and hasattr(func, "value") and isinstance(func.value, str):
+        parts.append(func.value)
+    name = ".".join(reversed(parts)) or "pd.Grouper"
+    options = {k: call.const(k, None) for k in ("closed", "label", "origin") if call.has(k)}
+    return emit.call(name, key=key, freq=freq, **options).text
+
+
+@rule("frame.groupby.grouper")
+def groupby_grouper(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.groupby([..., pd.Grouper(key="ts", freq=rule)]) -> time bins and keys, to aggregate.
+
+    Waits for an aggregation (`resample.sum` ...); groupby(pd.Grouper(...)) alone and
+    groupby(["station", pd.Grouper(...)]) alike.
+
+    Handles: the Grouper alone makes every bin between the first and the last, as resample
+    does; beside other keys only the bins rows fall in (pandas makes no empty ones there);
+    rows with a missing key or timestamp left out (dropna=True); keys sorted (sort=True);
+    as_index=False.
+    Caveats: sort=False, dropna=False and two Groupers are TODOs.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "by", "sort", "dropna", "as_index", "observed", positional=1)
+    by = call.const("by", 0)
+    if isinstance(by, tuple):
+        raise ctx.todo("keys given as a tuple")
+    keys_given = list(by) if isinstance(by, list) else [by]
+    specs = [k for k in keys_given if isinstance(k, TimeGrouperSpec)]
+    if len(specs) != 1:
+        raise ctx.todo("two Groupers among the keys")
+    if not all(isinstance(k, (str, TimeGrouperSpec)) for k in keys_given):
+        raise ctx.todo("keys other than column names beside the Grouper")
+    if call.const("sort", None, True) is not True:
+        raise ctx.todo("sort=False: pandas orders the bins as it meets them")
+    if call.const("dropna", None, True) is not True:
+        raise ctx.todo("dropna=False keeps rows with a missing key")
+    as_index = call.const("as_index", None, True, kinds=(bool,))
+    spec = specs[0]
+    keys = tuple(k.key if isinstance(k, TimeGrouperSpec) else k for k in keys_given)
+    if len(set(keys)) != len(keys):
+        raise ctx.todo("the time column is also a plain key")
+    if frame.index:
+        raise ctx.todo("the frame keeps an index (after a groupby): call reset_index() first")
+    if any(frame.dtype(k) == "category" for k in keys):
+        raise ctx.todo("category keys: pandas adds the categories no row has")
+    options = {} if as_index else {"as_index": False}
+    pandas = handover.to_pandas(frame).method("groupby", by, **options)
+    # pandas sorts the rows by time for a Grouper given alone, not for one in a list (even a
+    # list of one): first / last read that order
+    return Resampled(pandas, frame=frame, keys=keys, time=spec.key, freq=spec.freq,
+                     fill=len(keys) == 1, time_order=isinstance(by, TimeGrouperSpec),
+                     as_index=bool(as_index))
+
+
+@rule("resample.getitem")
+def resample_getitem(call: PandasCall, ctx: RuleContext) -> Value:
+    """r["kg"] / r[["kg", "price"]] -> the columns to aggregate."""
+    resampled = _resampled(call)
+    key = call.args[0]
+    if not (isinstance(key, Opaque) and isinstance(key.const, (str, list))):
+        raise ctx.todo("selecting columns by a computed key")
+    names = column_names(key.const, "the selected columns")
+    if set(names) & set(resampled.keys):
+        raise ctx.todo("selecting the time column or a group key")
+    single = isinstance(key.const, str)
+    return replace(resampled, code=resampled.code.index(key.const), selection=tuple(names),
+                   single=single, sites=())
+
+
+def _resampled(call: PandasCall) -> Resampled:
+    assert isinstance(call.receiver, Resampled)
+    return call.receiver
+
+
+# -- aggregating ---------------------------------------------------------------------------------
+
+def _targets(resampled: Resampled) -> list[str]:
+    if resampled.selection is not None:
+        return list(resampled.selection)
+    if resampled.frame.columns is None:
+        raise Unsupported("the frame's columns are not known (pandas aggregates every column "
+                          "but the keys): select the columns, or run with --data")
+    return [c for c in resampled.frame.columns if c not in resampled.keys]
+
+
+@dataclass
+class _Output:
+    name: str  # the output's name
+    expr: Code
+    how: str
+    dtype: str | None  # of the aggregated column
+    column: str | None = None  # the aggregated column, when the output is named after it
+
+    def aliased(self) -> Code:
+        return self.expr if self.column == self.name else self.expr.method("alias", self.name)
+
+
+def _binned(resampled: Resampled, outputs: list[_Output], ctx: RuleContext,
+            *, series: bool, series_name: str | None) -> Value:
+    """The aggregates per bin (and per other key), as pandas makes them."""
+    frame = resampled.frame
+    bins = bins_of(resampled.freq)
+    time = resampled.time
+    code = frame.code
+    if resampled.time_order and any(o.how in ("first", "last") for o in outputs):
+        # pandas sorts the rows by time (stably) before it bins them: first / last are the
+        # earliest / latest values of the bin, not the first / last rows of the frame
+        code = code.method("sort", time, maintain_order=True)
+    # each row's label, before rows are left out: pandas counts fixed bins from the first
+    # timestamp of every row (a row whose other key is missing included)
+    code = code.method("with_columns", bins.labels(emit.col(time)).method("alias", time))
+    code = code.method("drop_nulls", emit.names_arg(resampled.keys))
+    code = code.method("group_by", emit.names_arg(resampled.keys)).method(
+        "agg", *(o.aliased() for o in outputs))
+    dtypes: list[str | None] = [agg_dtype(o.how, o.dtype) for o in outputs]
+    if any(o.how == "sum" and o.dtype is None for o in outputs):
+        # a sum of a column of unknown type may be a sum of True/False: UInt32 in Polars
+        code = code.method("with_columns", emit.atom("pl.selectors.unsigned_integer()").method(
+            "cast", emit.atom("pl.Int64")))
+    if resampled.fill:
+        code = code.method("pipe", emit.atom(
+            f"lambda binned: binned.select({bins.every_label(time).text}).join("
+            f"binned, on={emit.lit(time).text}, how=\"left\", maintain_order=\"left\")"))
+        fills = []
+        for o in outputs:
+            if o.how in _ZERO_WHEN_EMPTY:
+                # pandas' sum of no values is 0 (min_count=0), '' for text; a count is 0
+                empty: object = "" if o.how == "sum" and o.dtype == "str" else 0
+                fills.append(emit.col(o.name).method("fill_null", emit.as_expr(empty)))
+            elif o.dtype not in ("float", "str", "datetime", "date") and o.how in (
+                    "min", "max", "first", "last"):
+                ctx.lower(f"{o.how} of a column of whole numbers (or of unknown type): pandas "
+                          "makes it float when a bin is empty, Polars keeps integers with a "
+                          "missing value (the values match)", 0.95)
+        if fills:
+            code = code.method("with_columns", *fills)
+    else:
+        code = code.method("sort", emit.names_arg(resampled.keys))
+    names = [o.name for o in outputs]
+    keys = list(resampled.keys)
+    known = [(k, frame.dtype(k)) for k in keys if k != time] + [(time, "datetime")]
+    known += list(zip(names, dtypes))
+    rows = fresh_token()
+    index = tuple(keys) if resampled.as_index else ()
+    result = Frame(code, columns=(*keys, *names), index=index,
+                   labels_intact=not resampled.as_index,
+                   dtypes=tuple((c, t) for c, t in known if t is not None), rows=rows,
+                   grouped_rows=rows if index else None)
+    if series and resampled.as_index:
+        return Column(emit.col(names[0]), frame=result, name=series_name, refs=frozenset(names),
+                      dtype=result.dtype(names[0]))
+    return result
+
+
+@rule(*(f"resample.{how}" for how in RESAMPLE_AGGREGATIONS))
+def resample_reduce(call: PandasCall, ctx: RuleContext) -> Value:
+    """r.sum() / mean / ... / var -> the aggregation per bin, every bin from the first to the last.
+
+    The aggregations: sum, mean, median, min, max, count, size, first, last, nunique, std, var.
+
+    Handles: missing values skipped as pandas skips them; first / last in the order pandas
+    bins the rows (by time for resample and a Grouper alone); an empty bin gets 0 from sum,
+    count, size and nunique ('' from the sum of text), a missing value otherwise; int sums stay
+    int, counts and sizes int, means float; ddof= for std / var.
+    Caveats: min / max / first / last of whole numbers are float in pandas when a bin is empty
+    (Polars keeps integers with a missing value: 0.95); min_count=, numeric_only=True and
+    skipna= are TODOs.
+    """
+    resampled = _resampled(call)
+    how = call.name
+    ctx.reject_unknown(call, *(("ddof", "numeric_only") if how in ("std", "var") else
+                               ("numeric_only",)))
+    if call.const("numeric_only", None, False) is not False:
+        raise ctx.todo("numeric_only=True needs the column types")
+    ddof = call.const("ddof", None, 1, kinds=(int,))
+    if how == "size":
+        name = resampled.selection[0] if resampled.single and resampled.selection else None
+        output = _Output(name or "size", emit.pl("len").method("cast", emit.atom("pl.Int64")),
+                         "size", None)
+        return _binned(resampled, [output], ctx, series=True, series_name=name)
+    outputs = []
+    for column in _targets(resampled):
+        dtype = resampled.frame.dtype(column)
+        expr = agg_expr(emit.col(column), how, dtype)
+        if how in ("std", "var") and ddof != 1:
+            expr = emit.col(column).method(how, ddof=ddof)
+        outputs.append(_Output(column, expr, how, dtype, column))
+    single = resampled.single and len(outputs) == 1
+    return _binned(resampled, outputs, ctx, series=single,
+                   series_name=outputs[0].name if single else None)
+
+
+@rule("resample.agg", "resample.aggregate")
+def resample_agg(call: PandasCall, ctx: RuleContext) -> Value:
+    """r.agg(...) -> the aggregations per bin in one LazyGroupBy.agg, as resample_reduce.
+
+    The forms: r.agg("sum"), r["kg"].agg(["sum", "mean"]), r.agg({"kg": "sum", "price": "mean"}),
+    r.agg(total=("kg", "sum")).
+
+    Handles: the names pandas gives the outputs; empty bins filled per aggregation.
+    Caveats: a dict of lists or a list over several columns (MultiIndex columns), functions
+    other than the named aggregations, and extra arguments are TODOs.
+    """
+    resampled = _resampled(call)
+    outputs: list[_Output] = []
+
+    def add(column: str, how: Any, name: str) -> None:
+        if not isinstance(how, str) or how not in RESAMPLE_AGGREGATIONS:
+            raise Unsupported(f"aggregation {how!r}")
+        if how == "size":
+            expr = emit.pl("len").method("cast", emit.atom("pl.Int64"))
+        else:
+            expr = agg_expr(emit.col(column), how, resampled.frame.dtype(column))
+        outputs.append(_Output(name, expr, how, resampled.frame.dtype(column),
+                               column if how != "size" else None))
+
+    if call.kwargs and not call.args:
+        selected = resampled.selection[0] if resampled.single and resampled.selection else None
+        for name, spec in call.kwargs.items():
+            if selected is not None and not (isinstance(spec, Opaque) and isinstance(spec.const, tuple)):
+                add(selected, how_name(spec), name)  # r["kg"].agg(total="sum")
+                continue
+            if not (isinstance(spec, Opaque) and isinstance(spec.const, tuple) and len(spec.const) == 2):
+                raise ctx.todo("named aggregation needs (column, function) pairs")
+            column, how = spec.const
+            if column in resampled.keys:
+                raise ctx.todo("aggregating the time column or a group key")
+            add(column, how, name)
+        return _binned(resampled, outputs, ctx, series=False, series_name=None)
+    if len(call.args) != 1 or call.kwargs:
+        raise ctx.todo("agg with extra arguments")
+    spec_value = call.args[0]
+    spec = spec_value.const if isinstance(spec_value, Opaque) and spec_value.is_const else None
+    if isinstance(spec, dict):
+        if any(isinstance(h, (list, tuple)) for h in spec.values()):
+            raise ctx.todo("a list of functions per column makes MultiIndex columns")
+        for column, how in spec.items():
+            if not isinstance(column, str) or column in resampled.keys:
+                raise ctx.todo("aggregating the time column or a group key")
+            add(column, how, column)
+        return _binned(resampled, outputs, ctx, series=False, series_name=None)
+    if isinstance(spec, list):
+        columns = _targets(resampled)
+        if len(columns) != 1 or not resampled.single:
+            raise ctx.todo("a list of functions over several columns makes MultiIndex columns")
+        for how in spec:
+            add(columns[0], how, str(how))
+        return _binned(resampled, outputs, ctx, series=False, series_name=None)
+    how = how_name(spec_value)
+    if how not in RESAMPLE_AGGREGATIONS:
+        raise ctx.todo(f"aggregation {how!r}")
+    return resample_reduce(PandasCall(resampled, how, (), {}, call.node), ctx)
