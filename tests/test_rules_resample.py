@@ -331,3 +331,30 @@ def test_rule_pandas_rejects_stays_pandas_and_says_why() -> None:
     text = _converted(FRAME + 'result = df.resample("M", on="ts")["v"].sum()\n')
     assert "TODO(porter): frame.resample" in text
     assert "'ME'" in text
+
+
+# -- columns porter does not know -------------------------------------------------------------
+
+CSV = """ts,kg,price
+2024-01-31 23:00,1,2.5
+2024-01-02 08:00,3,
+2024-01-30 10:00,,1.0
+,4,4.0
+2024-03-01 00:00,2,0.5
+"""
+
+
+@pytest.mark.parametrize("how", ["sum", "mean", "count", "max"])
+def test_whole_frame_read_from_a_file(tmp_path, how: str) -> None:
+    path = tmp_path / "sales.csv"
+    path.write_text(CSV)
+    source = (f'import pandas as pd\ndf = pd.read_csv({str(path)!r}, parse_dates=["ts"])\n'
+              f'result = df.resample("ME", on="ts").{how}()\n')
+    result = differential(source)
+    assert "TODO(porter)" not in result.converted_text
+    assert any(s.key == f"resample.{how}" and s.confidence == 0.85 for s in result.sites)
+
+
+def test_days_counted_in_bins_of_several_days_are_lowered() -> None:
+    result = convert(FRAME + 'result = df.resample("2D", on="ts")["v"].sum()\n')
+    assert any(s.key == "frame.resample" and s.confidence == 0.95 for s in result.sites)

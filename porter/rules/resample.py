@@ -77,6 +77,7 @@ class Bins:
     label: Any  # (time column code) -> the bin label of each row
     interval: str  # pl.datetime_ranges' interval between two labels (or two periods' starts)
     end_anchored: bool = False  # labels are month ends: the range runs over the months' starts
+    caveat: str | None = None  # where the rewrite may differ (lowers the confidence)
 
     def labels(self, time: Code) -> Code:
         return self.label(time)
@@ -117,7 +118,11 @@ def bins_of(freq: object) -> Bins:
             elapsed = emit.binop(t, "-", origin).attr("dt").method(total)
             whole = emit.binop(emit.binop(elapsed, "//", n), "*", n)
             return emit.binop(origin, "+", emit.pl("duration", **{keyword: whole}))
-        return Bins(freq, "left", counted, f"{n}{unit}")
+        caveat = None
+        if unit == "d":
+            caveat = ("with a time zone, pandas counts bins of several days in calendar days "
+                      "across a daylight-saving change, porter in hours (the same without one)")
+        return Bins(freq, "left", counted, f"{n}{unit}", caveat=caveat)
     week = re.fullmatch(r"W(?:-(MON|TUE|WED|THU|FRI|SAT|SUN))?", freq)
     if week:
         target = _WEEKDAYS[week.group(1) or "SUN"]
@@ -178,6 +183,8 @@ def resample(call: PandasCall, ctx: RuleContext) -> Value:
     on = call.const("on", None, kinds=(str,))
     bins = bins_of(call.const("rule", 0))
     _check_options(call, bins)
+    if bins.caveat:
+        ctx.lower(bins.caveat, 0.95)
     if frame.index:
         raise ctx.todo("the frame keeps an index (after a groupby): call reset_index() first")
     pandas = handover.to_pandas(frame).method(
@@ -202,6 +209,8 @@ def grouper(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo("a Grouper without freq= groups by the column's values")
     bins = bins_of(call.const("freq", None))
     _check_options(call, bins)
+    if bins.caveat:
+        ctx.lower(bins.caveat, 0.95)
     if call.node is None:
         raise ctx.todo("the Grouper's text is not known")
     spec = TimeGrouperSpec(key, bins.freq, _grouper_source(call, key, bins.freq))
@@ -292,13 +301,19 @@ def _resampled(call: PandasCall) -> Resampled:
 
 # -- aggregating ---------------------------------------------------------------------------------
 
-def _targets(resampled: Resampled) -> list[str]:
+def _targets(resampled: Resampled) -> list[str] | None:
+    """The columns aggregated; None when they are every column but the keys and porter does
+    not know the frame's columns."""
     if resampled.selection is not None:
         return list(resampled.selection)
     if resampled.frame.columns is None:
-        raise Unsupported("the frame's columns are not known (pandas aggregates every column "
-                          "but the keys): select the columns, or run with --data")
+        return None
     return [c for c in resampled.frame.columns if c not in resampled.keys]
+
+
+def _others(resampled: Resampled) -> Code:
+    """Every column but the keys, for a frame whose columns porter does not know."""
+    return emit.pl("all").method("exclude", *resampled.keys)
 
 
 @dataclass
@@ -308,9 +323,15 @@ class _Output:
     how: str
     dtype: str | None  # of the aggregated column
     column: str | None = None  # the aggregated column, when the output is named after it
+    others: Code | None = None  # every column but the keys (their names not known)
 
     def aliased(self) -> Code:
-        return self.expr if self.column == self.name else self.expr.method("alias", self.name)
+        if self.others is not None or self.column == self.name:
+            return self.expr
+        return self.expr.method("alias", self.name)
+
+    def output(self) -> Code:
+        return self.others if self.others is not None else emit.col(self.name)
 
 
 def _binned(resampled: Resampled, outputs: list[_Output], ctx: RuleContext,
@@ -344,7 +365,7 @@ def _binned(resampled: Resampled, outputs: list[_Output], ctx: RuleContext,
             if o.how in _ZERO_WHEN_EMPTY:
                 # pandas' sum of no values is 0 (min_count=0), '' for text; a count is 0
                 empty: object = "" if o.how == "sum" and o.dtype == "str" else 0
-                fills.append(emit.col(o.name).method("fill_null", emit.as_expr(empty)))
+                fills.append(o.output().method("fill_null", emit.as_expr(empty)))
             elif o.dtype not in ("float", "str", "datetime", "date") and o.how in (
                     "min", "max", "first", "last"):
                 ctx.lower(f"{o.how} of a column of whole numbers (or of unknown type): pandas "
@@ -354,13 +375,14 @@ def _binned(resampled: Resampled, outputs: list[_Output], ctx: RuleContext,
             code = code.method("with_columns", *fills)
     else:
         code = code.method("sort", emit.names_arg(resampled.keys))
-    names = [o.name for o in outputs]
+    names = [o.name for o in outputs if o.others is None]
     keys = list(resampled.keys)
     known = [(k, frame.dtype(k)) for k in keys if k != time] + [(time, "datetime")]
     known += list(zip(names, dtypes))
     rows = fresh_token()
     index = tuple(keys) if resampled.as_index else ()
-    result = Frame(code, columns=(*keys, *names), index=index,
+    unknown = any(o.others is not None for o in outputs)
+    result = Frame(code, columns=None if unknown else (*keys, *names), index=index,
                    labels_intact=not resampled.as_index,
                    dtypes=tuple((c, t) for c, t in known if t is not None), rows=rows,
                    grouped_rows=rows if index else None)
@@ -396,8 +418,17 @@ def resample_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         output = _Output(name or "size", emit.pl("len").method("cast", emit.atom("pl.Int64")),
                          "size", None)
         return _binned(resampled, [output], ctx, series=True, series_name=name)
+    columns = _targets(resampled)
+    if columns is None:
+        ctx.lower("the non-key columns are not known: text columns would fail in Polars "
+                  "(pandas joins or raises); run with --data to know them", 0.85)
+        others = _others(resampled)
+        expr = agg_expr(others, how) if ddof == 1 or how not in ("std", "var") else \
+            others.method(how, ddof=ddof)
+        return _binned(resampled, [_Output("*", expr, how, None, others=others)], ctx,
+                       series=False, series_name=None)
     outputs = []
-    for column in _targets(resampled):
+    for column in columns:
         dtype = resampled.frame.dtype(column)
         expr = agg_expr(emit.col(column), how, dtype)
         if how in ("std", "var") and ddof != 1:
@@ -459,7 +490,7 @@ def resample_agg(call: PandasCall, ctx: RuleContext) -> Value:
         return _binned(resampled, outputs, ctx, series=False, series_name=None)
     if isinstance(spec, list):
         columns = _targets(resampled)
-        if len(columns) != 1 or not resampled.single:
+        if columns is None or len(columns) != 1 or not resampled.single:
             raise ctx.todo("a list of functions over several columns makes MultiIndex columns")
         for how in spec:
             add(columns[0], how, str(how))
