@@ -1,0 +1,238 @@
+"""Ropewalk order book: what each customer ordered and owes, the rope weight per fibre for the
+carter, and the orders whose length nobody could read.
+
+Lengths come in as the customer wrote them: '120 m', '30 fathoms', '400 ft', '2 km', a decimal
+comma ('45,5 m'), a bare number (metres), or 'tbc' / '??'. They are turned into metres by a
+small parser; anything it cannot read stays missing and goes on the query list.
+"""
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+
+def pandas_div(numerator, divisor):
+    """numerator / divisor, each value divided as pandas divides it: Polars multiplies by the
+    reciprocal of a single divisor, which can be one binary digit off the quotient (and a later
+    round() then goes the other way)."""
+    return numerator / (numerator.is_null() * 0 + divisor)
+
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
+# metres per unit; the longer spellings first so 'fathoms' is not read as 'm'
+UNITS = [("fathoms", 1.8288), ("fathom", 1.8288), ("ft", 0.3048), ("km", 1000.0), ("m", 1.0)]
+
+
+def to_metres(text):
+    if not isinstance(text, str):   # a blank is read as NaN
+        return None
+    t = str(text).strip().lower().replace(",", ".")
+    factor = 1.0
+    for unit, per in UNITS:
+        if t.endswith(unit):
+            t = t[: -len(unit)].strip()
+            factor = per
+            break
+    try:
+        return round(float(t) * factor, 2)
+    except ValueError:
+        return None
+
+
+def normalise(s):
+    return s.str.strip_chars().str.to_lowercase()
+
+
+orders = (
+    pl.scan_csv(
+        "data/orders.csv",
+        null_values=PANDAS_NA_VALUES + ["??", "tbc"],
+        schema_overrides={"order_no": pl.String},
+        infer_schema_length=None,
+    )
+    .with_columns(pl.col("ordered_on").str.to_datetime(time_unit="us"))
+    .collect()
+    .lazy()
+)
+fibres = pl.scan_csv(
+    "data/fibres.csv",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
+)
+print("order lines:", orders.select(pl.len()).collect().item())
+
+repeats = orders.select(pl.len()).collect().item() - orders.unique("order_no", keep="first", maintain_order=True).select(pl.len()).collect().item()
+print("order numbers used twice:", repeats)
+orders = orders.with_columns(fibre=normalise(pl.col("fibre")))
+orders = orders.with_columns(
+    status=pl.col("status").str.strip_chars().str.to_lowercase(),
+)
+orders = orders.with_columns(
+    customer=pl.col("customer").str.strip_chars().str.to_titlecase(),
+)
+orders = (
+    orders
+    .filter(pl.col("status").ne_missing(pl.lit("cancelled")))
+    .collect()
+    .lazy()
+)
+
+# TODO(porter): series.apply: a loop or a block that only a Python call can run
+# TODO(porter): frame.setitem: a Series computed by pandas, row for row from this frame, is put back
+#   by position; port the computation to an expression
+orders = (
+    orders
+    .with_columns(
+        metres=pl.Series(
+            orders.select(pl.col("length")).collect().to_series().to_pandas().apply(to_metres),
+            nan_to_null=True,
+        ),
+    )
+    .collect()
+    .lazy()
+)
+
+unread = (
+    orders
+    .filter(pl.col("metres").is_null())
+    .select("order_no", "customer", "length")
+    .collect()
+    .lazy()
+)
+(
+    unread
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
+    )
+    .sink_csv("lengths_to_query.csv")
+)
+print(f"{unread.select(pl.len()).collect().item()} orders without a readable length")
+
+# the fibre list has hemp twice (the new supplier): keep the first price
+fibres = fibres.unique("fibre", keep="first", maintain_order=True)
+priced = (
+    orders
+    .rename(
+        lambda c, other=fibres.collect_schema().names(): c + "_x" if c in other and c not in ("fibre",) else c,
+    )
+    .join(
+        fibres.rename(
+            lambda c, other=orders.collect_schema().names(): c + "_y" if c in other and c not in ("fibre",) else c,
+        ),
+        on="fibre",
+        how="left",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+)
+priced = priced.with_columns(value=(pl.col("metres") * pl.col("price_per_m")).round(2))
+priced = priced.with_columns(
+    kg=(pandas_div(pl.col("metres"), 100) * pl.col("kg_per_100m")).fill_nan(None),
+)
+priced = priced.with_columns(
+    metres_per_kg=(pl.col("metres") / pl.col("kg")).fill_nan(None),
+)
+priced = priced.with_columns(is_open=(pl.col("status") == "open").fill_null(False))
+priced = (
+    priced
+    .with_columns(month=pl.col("ordered_on").dt.month().cast(pl.Int32))
+    .collect()
+    .lazy()
+)
+
+# --- per customer
+per_customer = (
+    priced
+    .drop_nulls("customer")
+    .group_by("customer")
+    .agg(
+        pl.col("order_no").count().cast(pl.Int64).alias("orders"),
+        pl.col("metres").sum().alias("metres"),
+        pl.col("value").sum().alias("value"),
+        pl.col("is_open").sum().cast(pl.Int64).alias("open_orders"),
+    )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
+    .sort("customer")
+)
+per_customer = per_customer.sort(
+    ["value", "customer"],
+    descending=[True, False],
+    nulls_last=True,
+    maintain_order=True,
+)
+per_customer = per_customer.with_columns(value=pl.col("value").round(2))
+per_customer = per_customer.with_columns(metres=pl.col("metres").round(2))
+(
+    per_customer
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
+    )
+    .sink_csv("customer_totals.csv")
+)
+
+# --- per fibre and month, for the carter
+loads = (
+    priced
+    .group_by(["fibre", "month"])
+    .agg(pl.col("kg").sum(), pl.col("metres").sum())
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
+    .sort(["fibre", "month"], nulls_last=True)
+)
+loads = loads.with_columns(kg=pl.col("kg").round(1))
+loads = loads.with_columns(metres=pl.col("metres").round(2))
+(
+    loads
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_INTS,
+    )
+    .sink_csv("fibre_loads.csv")
+)
+
+print(
+    pl.concat([
+        priced.select("metres", "kg", "metres_per_kg")
+        .select(pl.lit("count").alias("index"), pl.selectors.numeric().count().cast(pl.Float64)),
+        priced.select("metres", "kg", "metres_per_kg")
+        .select(pl.lit("mean").alias("index"), pl.selectors.numeric().mean()),
+        priced.select("metres", "kg", "metres_per_kg")
+        .select(pl.lit("std").alias("index"), pl.selectors.numeric().std()),
+        priced.select("metres", "kg", "metres_per_kg")
+        .select(pl.lit("min").alias("index"), pl.selectors.numeric().min().cast(pl.Float64)),
+        priced.select("metres", "kg", "metres_per_kg")
+        .select(pl.lit("25%").alias("index"), pl.selectors.numeric().quantile(0.25, "linear")),
+        priced.select("metres", "kg", "metres_per_kg")
+        .select(pl.lit("50%").alias("index"), pl.selectors.numeric().quantile(0.5, "linear")),
+        priced.select("metres", "kg", "metres_per_kg")
+        .select(pl.lit("75%").alias("index"), pl.selectors.numeric().quantile(0.75, "linear")),
+        priced.select("metres", "kg", "metres_per_kg")
+        .select(pl.lit("max").alias("index"), pl.selectors.numeric().max().cast(pl.Float64)),
+    ])
+    .with_columns(pl.selectors.float().round(2))
+    .collect(),
+)
