@@ -1,0 +1,215 @@
+"""River lock-keeper rota: hours and pay per keeper and week, cover per lock, and boats
+through per hour kept.
+
+Each rota line is one keeper at one lock for a week, with up to three shifts written as the
+keeper likes them: '06:00-14:00', '6-14', a night '22:00-06:00' (past midnight), 'off',
+'sick' or blank. Hours are worked out shift by shift. A line with no hours and boats through
+means the lock was worked by the boaters themselves.
+"""
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
+SHIFTS = ["shift_1", "shift_2", "shift_3"]
+WEEK_HOURS = 37.5
+
+
+def clock(text):
+    # '06:00' -> 6.0, '8:30' -> 8.5, '14' -> 14.0
+    hh, _, mm = text.strip().partition(":")
+    return int(hh) + (int(mm) / 60 if mm else 0)
+
+
+def hours_on_rota(row):
+    total = 0.0
+    for col in SHIFTS:
+        shift = row[col]
+        if not isinstance(shift, str) or "-" not in shift:
+            continue   # off, sick, blank
+        start, end = shift.split("-")
+        try:
+            h = clock(end) - clock(start)
+        except ValueError:
+            continue
+        if h <= 0:
+            h += 24   # a night shift runs past midnight ('12-12' is a full day)
+        total += h
+    return total
+
+
+rota = (
+    pl.scan_csv(
+        "data/rota.csv",
+        null_values=PANDAS_NA_VALUES + ["off"],
+        infer_schema_length=None,
+    )
+    .collect()
+    .lazy()
+)
+keepers = pl.scan_csv(
+    "data/keepers.csv",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
+)
+print(f"rota lines: {rota.select(pl.len()).collect().item()}")
+
+print(
+    "rota ids on two lines:",
+    rota.select(pl.len()).collect().item() - rota.select(pl.col("rota_id").drop_nulls().n_unique().cast(pl.Int64)).collect().to_series().to_numpy()[0],
+)
+rota = rota.with_columns(keeper=pl.col("keeper").str.strip_chars().str.to_titlecase())
+rota = rota.with_columns(lock=pl.col("lock").str.strip_chars())
+rota = rota.with_columns(
+    lock=pl.when(pl.col("lock").str.len_chars() > 0).then(pl.col("lock").str.slice(0, 1)).str.to_uppercase() + pl.col("lock").str.slice(1),
+)
+rota = rota.rename({"boats_through": "boats"}, strict=False)
+
+# TODO(porter): frame.apply: a loop or a block that only a Python call can run; write the function
+#   as column expressions (pl.when / arithmetic); map_elements is a last resort
+# TODO(porter): frame.setitem: a Series computed by pandas, row for row from this frame, is put back
+#   by position; port the computation to an expression
+rota = rota.with_columns(
+    hours=pl.Series(
+        rota.collect().to_pandas().apply(hours_on_rota, axis=1),
+        nan_to_null=True,
+    ),
+)
+
+rota = rota.with_columns(sick_shifts=pl.lit(0, dtype=pl.Int64))
+for col in SHIFTS:
+    rota = rota.with_columns(
+        sick_shifts=pl.col("sick_shifts") + (pl.col(col) == "sick").fill_null(False).cast(pl.Int64),
+    )
+rota = (
+    rota
+    .with_columns(boats_per_hour=(pl.col("boats") / pl.col("hours")).fill_nan(None))
+    .collect()
+    .lazy()
+)
+print(
+    pl.concat([
+        rota.select("hours", "boats_per_hour")
+        .select(pl.lit("count").alias("index"), pl.selectors.numeric().count().cast(pl.Float64)),
+        rota.select("hours", "boats_per_hour")
+        .select(pl.lit("mean").alias("index"), pl.selectors.numeric().mean()),
+        rota.select("hours", "boats_per_hour")
+        .select(pl.lit("std").alias("index"), pl.selectors.numeric().std()),
+        rota.select("hours", "boats_per_hour")
+        .select(pl.lit("min").alias("index"), pl.selectors.numeric().min().cast(pl.Float64)),
+        rota.select("hours", "boats_per_hour")
+        .select(pl.lit("25%").alias("index"), pl.selectors.numeric().quantile(0.25, "linear")),
+        rota.select("hours", "boats_per_hour")
+        .select(pl.lit("50%").alias("index"), pl.selectors.numeric().quantile(0.5, "linear")),
+        rota.select("hours", "boats_per_hour")
+        .select(pl.lit("75%").alias("index"), pl.selectors.numeric().quantile(0.75, "linear")),
+        rota.select("hours", "boats_per_hour")
+        .select(pl.lit("max").alias("index"), pl.selectors.numeric().max().cast(pl.Float64)),
+    ])
+    .collect(),
+)
+
+# --- pay per keeper and week; the keepers list has Piers twice, the first rate stands
+rates = keepers.unique("keeper", keep="first", maintain_order=True)
+pay = (
+    rota
+    .drop_nulls(["keeper", "week_start"])
+    .group_by(["keeper", "week_start"])
+    .agg(
+        pl.col("hours").sum().alias("hours"),
+        pl.col("lock").drop_nulls().n_unique().cast(pl.Int64).alias("locks"),
+    )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
+    .sort(["keeper", "week_start"])
+)
+pay = (
+    pay
+    .rename(
+        lambda c, other=rates.collect_schema().names(): c + "_x" if c in other and c not in ("keeper",) else c,
+    )
+    .join(
+        rates.rename(
+            lambda c: c + "_y" if c in ("week_start", "hours", "locks") else c,
+        ),
+        on="keeper",
+        how="left",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+)
+pay = pay.with_columns(overtime=(pl.col("hours") - WEEK_HOURS).clip(0, None))
+pay = pay.with_columns(
+    pay=(
+        (pl.col("hours") - pl.col("overtime")) * pl.col("hourly_rate")
+        + pl.col("overtime") * pl.col("hourly_rate") * 1.5
+    )
+    .fill_nan(None)
+    .round(2),
+)
+pay = (
+    pay
+    .sort(["week_start", "keeper"], nulls_last=True, maintain_order=True)
+    .collect()
+    .lazy()
+)
+(
+    pay
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
+    .sink_csv("keeper_pay.csv")
+)
+
+# --- cover per lock and week
+cover = (
+    rota
+    .drop_nulls(["lock", "week_start"])
+    .group_by(["lock", "week_start"])
+    .agg(
+        pl.col("hours").sum().alias("hours"),
+        pl.col("boats").sum().alias("boats"),
+        pl.col("sick_shifts").sum().alias("sick"),
+    )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
+    .sort(["lock", "week_start"])
+)
+cover = cover.with_columns(
+    boats_per_hour=(pl.col("boats") / pl.col("hours")).fill_nan(None).round(2),
+)
+(
+    cover
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
+    .sink_csv("lock_cover.csv")
+)
+
+unmanned = rota.filter((pl.col("hours") == 0) & (pl.col("boats") > 0)).collect().lazy()
+(
+    unmanned
+    .select("rota_id", "lock", "week_start", "keeper", "boats")
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_INTS,
+    )
+    .sink_csv("self_worked.csv")
+)
+print(
+    "self-worked lines:",
+    unmanned.select(pl.len()).collect().item(),
+    "| overtime hours:",
+    pay.select(pl.col("overtime").sum()).collect().item(),
+)
