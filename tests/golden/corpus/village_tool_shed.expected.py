@@ -1,0 +1,287 @@
+"""Village lending tool shed: how long each tool sat idle between loans, which tools earn
+their deposit, and the members with tools out too long.
+
+The shed is open on Saturdays; the loans book says when a tool went out and came back. A
+blank or '?' return date means nobody wrote it down; 'lost' is lost. The tool names are
+typed by whoever is on duty ('Hedge Trimmer', ' hedge trimmer'). The ladder was bought twice
+and the post-hole digger came from a house clearance, so it has no deposit.
+"""
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+
+def pandas_div(numerator, divisor):
+    """numerator / divisor, each value divided as pandas divides it: Polars multiplies by the
+    reciprocal of a single divisor, which can be one binary digit off the quotient (and a later
+    round() then goes the other way)."""
+    return numerator / (numerator.is_null() * 0 + divisor)
+
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+# Duration columns as pandas' to_csv writes them: "2 days" when every value is a whole number
+# of days, else "-1 days +23:00:00", with microseconds when one value has them.
+PANDAS_CSV_DURATIONS = (
+    pl.when((pl.selectors.duration().dt.total_microseconds() % 86_400_000_000 == 0).all())
+    .then(
+        (pl.selectors.duration().dt.total_microseconds() // 86_400_000_000).cast(pl.String)
+        + " days"
+    )
+    .otherwise(
+        (pl.selectors.duration().dt.total_microseconds() // 86_400_000_000).cast(pl.String)
+        + pl.when(pl.selectors.duration().dt.total_microseconds() < 0)
+        .then(pl.lit(" days +"))
+        .otherwise(pl.lit(" days "))
+        + (pl.selectors.duration().dt.total_microseconds() % 86_400_000_000 // 3_600_000_000)
+        .cast(pl.String).str.zfill(2)
+        + ":"
+        + (pl.selectors.duration().dt.total_microseconds() % 3_600_000_000 // 60_000_000)
+        .cast(pl.String).str.zfill(2)
+        + ":"
+        + (pl.selectors.duration().dt.total_microseconds() % 60_000_000 // 1_000_000)
+        .cast(pl.String).str.zfill(2)
+        + pl.when((pl.selectors.duration().dt.total_microseconds() % 1_000_000 == 0).all())
+        .then(pl.lit(""))
+        .otherwise(
+            "." + (pl.selectors.duration().dt.total_microseconds() % 1_000_000)
+            .cast(pl.String).str.zfill(6)
+        )
+    )
+)
+
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
+LATE_AFTER = 14   # days
+TODAY = "2024-08-31"   # the day the book was closed for the summer
+
+
+def longest_idle(out_dates):
+    """Longest run of days between two loans of the same tool."""
+    days = sorted(out_dates.dropna().unique())
+    longest = 0
+    for earlier, later in zip(days, days[1:]):
+        gap = (later - earlier).days
+        if gap > longest:
+            longest = gap
+    return longest
+
+
+loans = (
+    pl.scan_csv(
+        "data/loans.csv",
+        null_values=PANDAS_NA_VALUES + ["?"],
+        infer_schema_length=None,
+    )
+    .collect()
+    .lazy()
+)
+tools = pl.scan_csv(
+    "data/tools.csv",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
+)
+print("loans in the book:", loans.select(pl.len()).collect().item())
+
+print(
+    "loan slips entered twice:",
+    loans.select(pl.len()).collect().item() - loans.unique("loan_id", keep="first", maintain_order=True).select(pl.len()).collect().item(),
+)
+loans = loans.with_columns(tool=pl.col("tool").str.strip_chars().str.to_lowercase())
+loans = loans.with_columns(
+    condition=pl.col("condition").str.to_lowercase().fill_null(pl.lit("not checked")),
+)
+loans = loans.with_columns(out_date=pl.col("out_date").str.to_datetime("%Y-%m-%d"))
+loans = loans.with_columns(lost=(pl.col("back_date") == "lost").fill_null(False))
+loans = loans.with_columns(broken=(pl.col("condition") == "broken").fill_null(False))
+loans = (
+    loans
+    .with_columns(
+        back_date=pl.col("back_date").str.to_datetime("%Y-%m-%d", strict=False),
+    )
+    .collect()
+    .lazy()
+)
+# TODO(porter): series.dt.days: a duration column has no .dt.days in pandas
+# TODO(porter): frame.setitem: a Series computed by pandas, row for row from this frame, is put back
+#   by position; port the computation to an expression
+loans = (
+    loans
+    .with_columns(
+        days_out=pl.Series(
+            loans.select((pl.col("back_date").fill_null(pl.datetime(2024, 8, 31)) - pl.col("out_date")).alias("0")).collect().to_series().to_pandas().rename(None).dt.days,
+            nan_to_null=True,
+        ),
+    )
+    .collect()
+    .lazy()
+)
+
+# TODO(porter): groupby.agg: aggregation longest_idle (a function porter cannot read)
+idle = loans.collect().to_pandas().fillna({"lost": float("nan"), "broken": float("nan")}).groupby("tool")["out_date"].agg(longest_idle).reset_index()
+idle = pl.from_pandas(idle).lazy()
+idle = idle.rename({"out_date": "longest_idle_days"}, strict=False).collect().lazy()
+print(idle.head(5).collect())
+
+# --- per tool: loans, days out, idle spell, against the deposit
+stock = (
+    tools
+    .drop_nulls("tool")
+    .group_by("tool")
+    .agg(
+        pl.col("bought").count().cast(pl.Int64).alias("copies"),
+        pl.col("deposit").max().alias("deposit"),
+    )
+    .sort("tool")
+)
+per_tool = (
+    loans
+    .drop_nulls("tool")
+    .group_by("tool")
+    .agg(
+        pl.col("loan_id").count().cast(pl.Int64).alias("loans"),
+        pl.col("days_out").sum().alias("days_out"),
+        pl.col("broken").sum().cast(pl.Int64).alias("broken"),
+        pl.col("lost").sum().cast(pl.Int64).alias("lost"),
+    )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
+    .sort("tool")
+)
+per_tool = (
+    per_tool
+    .rename(
+        lambda c, other=idle.collect_schema().names(): c + "_x" if c in other and c not in ("tool",) else c,
+    )
+    .join(
+        idle.rename(
+            lambda c: c + "_y" if c in ("loans", "days_out", "broken", "lost") else c,
+        ),
+        on="tool",
+        how="inner",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+    .rename(lambda c: c + "_x" if c in ("copies", "deposit") else c)
+    .join(
+        stock.rename(
+            lambda c, other=per_tool.rename(lambda c, other=idle.collect_schema().names(): c + "_x" if c in other and c not in ("tool",) else c).join(idle.rename(lambda c: c + "_y" if c in ("loans", "days_out", "broken", "lost") else c), on="tool", how="inner", nulls_equal=True, maintain_order="left_right").collect_schema().names(): c + "_y" if c in other and c not in ("tool",) else c,
+        ),
+        on="tool",
+        how="left",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+)
+per_tool = per_tool.with_columns(
+    loans_per_deposit_pound=(pl.col("loans") / pl.col("deposit")).fill_nan(None),
+)
+per_tool = per_tool.with_columns(
+    loans_per_deposit_pound=pl.col("loans_per_deposit_pound").round(3),
+)
+per_tool = per_tool.with_columns(
+    idle_share=pandas_div(pl.col("longest_idle_days"), 183).round(3),
+)
+per_tool = (
+    per_tool
+    .sort(
+        ["longest_idle_days", "tool"],
+        descending=[True, False],
+        nulls_last=True,
+        maintain_order=True,
+    )
+    .collect()
+    .lazy()
+)
+(
+    per_tool
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_DURATIONS,
+        PANDAS_CSV_INTS,
+    )
+    .sink_csv("tool_use.csv")
+)
+print(
+    "tools not in the stock list:",
+    per_tool.filter(pl.col("copies").is_null())
+    .select(pl.col("tool"))
+    .collect()
+    .to_series()
+    .to_numpy()
+    .tolist(),
+)
+
+# --- members with a tool out too long (or lost)
+late = loans.filter((pl.col("days_out") > LATE_AFTER) | pl.col("lost"))
+late = (
+    late
+    .rename(lambda c: c + "_x" if c in ("deposit",) else c)
+    .join(
+        per_tool.select("tool", "deposit").rename(lambda c, other=late.collect_schema().names(): c + "_y" if c in other and c not in ("tool",) else c),
+        on="tool",
+        how="left",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+)
+by_member = (
+    late
+    .drop_nulls("member")
+    .group_by("member")
+    .agg(
+        pl.col("loan_id").count().cast(pl.Int64).alias("late_loans"),
+        pl.col("deposit").sum().alias("deposits_held"),
+        pl.col("days_out").max().alias("worst"),
+    )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
+    .sort("member")
+)
+by_member = by_member.sort(
+    ["late_loans", "member"],
+    descending=[True, False],
+    nulls_last=True,
+    maintain_order=True,
+)
+pl.collect_all([
+    (
+        by_member
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_DURATIONS,
+            PANDAS_CSV_INTS,
+        )
+        .sink_csv("late_members.csv", lazy=True)
+    ),
+    (
+        late
+        .select("loan_id", "tool", "member", "out_date", "days_out", "lost")
+        .sort("loan_id", nulls_last=True, maintain_order=True)
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_DURATIONS,
+            PANDAS_CSV_INTS,
+        )
+        .sink_csv("late_loans.csv", lazy=True)
+    ),
+])
