@@ -24,6 +24,9 @@ OLDEST_PYTHON = (3, 11)
 # Without these in the script, no frame can hold a datetime column (CSV scans do not infer dates).
 DATETIME_HINTS = re.compile(r"parse_dates|to_datetime|read_parquet|read_excel|read_json|read_sql|"
                             r"Timestamp|datetime|date_range|\.dt\.|astype\(.datetime")
+# what shows that a script works with durations (a difference of dates, which porter keeps no
+# type for): its CSV writes then format duration columns as pandas does
+DURATION_HINTS = re.compile(r"[Tt]imedelta|DateOffset|\.dt\.(days|seconds|total_seconds|components)")
 # what can make pandas' nullable integer columns (written 2024 where a plain integer column with
 # a missing value, float in pandas, is written 2024.0); dt.isocalendar() makes UInt32 / Int32 ones
 NULLABLE_INT_HINTS = re.compile(r"U?Int(8|16|32|64)|convert_dtypes|dtype_backend|pd\.NA\b|pd\.array|"
@@ -60,6 +63,7 @@ def convert_source(text: str, *, path: str | None = None, options: Options | Non
         schema_lookup=schema_lookup,
         datetimes_possible=bool(DATETIME_HINTS.search(text)),
         nullable_ints_possible=bool(NULLABLE_INT_HINTS.search(text)),
+        durations_possible=bool(DURATION_HINTS.search(text)),
         categories_possible=bool(CATEGORY_HINTS.search(text)),
     )
     try:

@@ -729,3 +729,28 @@ def test_to_csv_of_two_level_columns_writes_pandas_header(data: Path,
         assert (actual_dir / name).read_text(encoding="utf-8") == \
             (expected_dir / name).read_text(encoding="utf-8"), converted
     assert "MultiIndex.from_tuples" in converted
+
+
+@pytest.mark.parametrize("gaps", [
+    # whole days (negative too): pandas writes "2 days", "-1 days"
+    '["2024-03-01", "2024-02-28", "2024-03-03"], ["2024-03-03", "2024-03-01", None]',
+    # hours and minutes: "0 days 06:30:00", a negative gap "-1 days +23:00:00"
+    '["2024-03-01 06:30", "2024-03-01 00:00", None], ["2024-03-01 00:00", "2024-03-01 01:00", "2024-03-02 00:00"]',
+    # a second's fraction in one value: every value gets microseconds
+    '["2024-03-01 00:00:01.500000", "2024-03-02 00:00:00.000000", "2024-03-01 00:00:00.000000"], '
+    '["2024-03-01 00:00:00.000000", "2024-03-01 00:00:00.000000", "2024-03-01 00:00:00.000001"]',
+])
+def test_a_column_of_date_differences_is_written_as_pandas_writes_it(
+        gaps: str, data: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    # Polars cannot write a duration column to CSV at all; pandas writes each value as text
+    # decided from the whole column
+    source = f"""
+        import pandas as pd
+        ends, starts = {gaps}
+        df = pd.DataFrame({{"end": pd.to_datetime(ends), "start": pd.to_datetime(starts)}})
+        df["gap"] = df["end"] - df["start"]
+        df["days"] = df["gap"].dt.days
+        df.to_csv("gaps.csv", index=False)
+        """
+    expected_dir, actual_dir, converted = written_by_both(source, data, monkeypatch)
+    assert (actual_dir / "gaps.csv").read_text() == (expected_dir / "gaps.csv").read_text(), converted

@@ -9,7 +9,8 @@ from typing import Any
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_INTS_CONSTANT, DTYPES,
+from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_DURATIONS_CONSTANT,
+                                     CSV_INTS_CONSTANT, DTYPES,
                                      NA_CONSTANT, NOT_DECOMPRESSED, PANDAS_NA_TOKENS,
                                      compression_of, is_number, is_url, na_value_texts)
 from porter.analysis.schema import PADDING
@@ -485,6 +486,9 @@ def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
             "replace_strict", {True: "True", False: "False"}))
     if "datetime" in kinds or (ctx.datetimes_possible and not complete):
         out.append(emit.atom(CSV_DATETIMES_CONSTANT))
+    if "duration" in kinds or (ctx.durations_possible and not complete):
+        # a difference of dates: Polars cannot write a duration, pandas writes "1 days 06:00:00"
+        out.append(emit.atom(CSV_DURATIONS_CONSTANT))
     if "int" in kinds or not complete:
         if ctx.nullable_ints_possible:
             # pandas' nullable Int64 (astype("Int64"), dtype={"c": "Int64"}) writes 2024

@@ -27,6 +27,41 @@ PANDAS_CSV_DATETIMES = (
 )
 """
 
+# An expression, defined once at the top of a converted script, that writes every duration
+# column the way pandas' to_csv writes a timedelta column (decided per column from the data).
+CSV_DURATIONS_CONSTANT = "PANDAS_CSV_DURATIONS"
+CSV_DURATIONS_DEFINITION = """\
+# Duration columns as pandas' to_csv writes them: "2 days" when every value is a whole number
+# of days, else "-1 days +23:00:00", with microseconds when one value has them.
+PANDAS_CSV_DURATIONS = (
+    pl.when((pl.selectors.duration().dt.total_microseconds() % 86_400_000_000 == 0).all())
+    .then(
+        (pl.selectors.duration().dt.total_microseconds() // 86_400_000_000).cast(pl.String)
+        + " days"
+    )
+    .otherwise(
+        (pl.selectors.duration().dt.total_microseconds() // 86_400_000_000).cast(pl.String)
+        + pl.when(pl.selectors.duration().dt.total_microseconds() < 0)
+        .then(pl.lit(" days +"))
+        .otherwise(pl.lit(" days "))
+        + (pl.selectors.duration().dt.total_microseconds() % 86_400_000_000 // 3_600_000_000)
+        .cast(pl.String).str.zfill(2)
+        + ":"
+        + (pl.selectors.duration().dt.total_microseconds() % 3_600_000_000 // 60_000_000)
+        .cast(pl.String).str.zfill(2)
+        + ":"
+        + (pl.selectors.duration().dt.total_microseconds() % 60_000_000 // 1_000_000)
+        .cast(pl.String).str.zfill(2)
+        + pl.when((pl.selectors.duration().dt.total_microseconds() % 1_000_000 == 0).all())
+        .then(pl.lit(""))
+        .otherwise(
+            "." + (pl.selectors.duration().dt.total_microseconds() % 1_000_000)
+            .cast(pl.String).str.zfill(6)
+        )
+    )
+)
+"""
+
 # An expression, defined once at the top of a converted script, that writes every integer
 # column the way pandas' to_csv does: pandas holds an integer column that has a missing value
 # as floats, and writes 2024.0 (decided per column from the data).

@@ -88,6 +88,7 @@ class Services:
     # the script may make pandas' nullable integer columns (astype("Int64")), which porter
     # does not tell from plain ones
     nullable_ints_possible: bool = True
+    durations_possible: bool = True  # the script may make durations of unknown type
     # statements that compute each named frame's data, by the assignment that named it
     consumers: dict[int, set[tuple[int, int]]] = field(default_factory=dict)
     # the script may make category columns (astype("category"), cut, a parquet file): a frame
@@ -705,6 +706,7 @@ class Evaluator:
                           evaluate=self.evaluate_with,
                           datetimes_possible=self.services.datetimes_possible,
                           nullable_ints_possible=self.services.nullable_ints_possible,
+                          durations_possible=self.services.durations_possible,
                           inside_from_pandas=self.services.inside_from_pandas(node),
                           shown=self.services.shown(node),
                           function_def=self.services.function_defs.get)
