@@ -10,7 +10,7 @@ from __future__ import annotations
 import pytest
 
 from rule_checks import check_ports, check_todo, check_unchanged
-from support import convert, differential
+from support import convert, differential, run
 
 # NaN and None together, duplicates, unicode text, booleans.
 FRAME = """\
@@ -324,3 +324,38 @@ df["k"] = 7
 result = df
 missing = df.isna().sum()
 ''', "result", "missing")
+
+
+# -- pd.to_numeric --------------------------------------------------------------------------------
+
+NUMERIC_TEXT = """\
+import pandas as pd
+df = pd.DataFrame({
+    "raw": ["1", " 3 ", "2.5e1", "x", None, "inf", "+5", ".5", "1,000", "1_000", "0x10", "-0",
+            "1.5E-3", "12abc", "\\t7\\n", "nan", "", "Infinity"],
+    "n": [1.0, 2.0, 3.0, 4.0, 5.0, 6.0, 7.0, 8.0, 9.0, 10.0, 11.0, 12.0, 13.0, 14.0, 15.0, 16.0,
+          17.0, 18.0],
+})
+"""
+
+
+@pytest.mark.parametrize("snippet", [
+    'df["v"] = pd.to_numeric(df["raw"], errors="coerce")\nresult = df',
+    'result = pd.to_numeric(df["raw"], errors="coerce").sum()',
+    'result = df.assign(v=pd.to_numeric(df["raw"], errors="coerce") * 2)',
+    'result = df.assign(same=pd.to_numeric(df["n"]))',
+    # every text readable: errors="raise" reads them as pandas does
+    'ok = df[df["raw"].isin(["1", " 3 ", "+5", ".5"])]\nresult = ok.assign(v=pd.to_numeric(ok["raw"]))',
+])
+def test_to_numeric_matches_pandas(snippet: str) -> None:
+    result = differential(NUMERIC_TEXT + snippet + "\n")
+    assert not result.todos, result.converted_text
+
+
+def test_to_numeric_of_unreadable_text_fails_as_pandas_does() -> None:
+    source = NUMERIC_TEXT + 'df["v"] = pd.to_numeric(df["raw"])\nresult = df.collect() if hasattr(df, "collect") else df\n'
+    with pytest.raises(Exception):
+        run(source)
+    converted = convert(source).converted_text
+    with pytest.raises(Exception):
+        run(converted)
