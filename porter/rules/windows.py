@@ -67,7 +67,9 @@ def diff(call: PandasCall, ctx: RuleContext) -> Value:
     if column.dtype == "bool":
         raise Unsupported("diff of booleans is a logical xor in pandas")
     args = [periods] if periods != 1 else []
-    return derived_column(column, column.code.method("diff", *args), dtype=column.dtype)
+    # the difference of dates is a duration (pandas' timedelta64), which porter keeps untyped
+    dtype = None if column.dtype in ("datetime", "date") else column.dtype
+    return derived_column(column, column.code.method("diff", *args), dtype=dtype)
 
 
 @rule(*(f"series.{name}" for name in CUMULATIVE))
@@ -315,7 +317,8 @@ def group_shift(call: PandasCall, ctx: RuleContext) -> Value:
     args = [periods] if call.name == "shift" or periods != 1 else []
     expr = column.code.method(call.name, *args, **kwargs)
     # pandas writes fill_value on the rows of a missing key too
-    return derived_column(column, _window(grouped, expr, kwargs.get("fill_value")), dtype=column.dtype)
+    dtype = None if call.name == "diff" and column.dtype in ("datetime", "date") else column.dtype
+    return derived_column(column, _window(grouped, expr, kwargs.get("fill_value")), dtype=dtype)
 
 
 @rule("groupby.cumcount")
