@@ -112,24 +112,13 @@ loans = loans.with_columns(
 loans = loans.with_columns(out_date=pl.col("out_date").str.to_datetime("%Y-%m-%d"))
 loans = loans.with_columns(lost=(pl.col("back_date") == "lost").fill_null(False))
 loans = loans.with_columns(broken=(pl.col("condition") == "broken").fill_null(False))
-loans = (
-    loans
-    .with_columns(
-        back_date=pl.col("back_date").str.to_datetime("%Y-%m-%d", strict=False),
-    )
-    .collect()
-    .lazy()
+loans = loans.with_columns(
+    back_date=pl.col("back_date").str.to_datetime("%Y-%m-%d", strict=False),
 )
-# TODO(porter): series.dt.days: a duration column has no .dt.days in pandas
-# TODO(porter): frame.setitem: a Series computed by pandas, row for row from this frame, is put back
-#   by position; port the computation to an expression
 loans = (
     loans
     .with_columns(
-        days_out=pl.Series(
-            loans.select((pl.col("back_date").fill_null(pl.datetime(2024, 8, 31)) - pl.col("out_date")).alias("0")).collect().to_series().to_pandas().rename(None).dt.days,
-            nan_to_null=True,
-        ),
+        days_out=(pl.col("back_date").fill_null(pl.datetime(2024, 8, 31)) - pl.col("out_date")).dt.total_microseconds() // 86_400_000_000,
     )
     .collect()
     .lazy()
@@ -162,7 +151,6 @@ per_tool = (
         pl.col("broken").sum().cast(pl.Int64).alias("broken"),
         pl.col("lost").sum().cast(pl.Int64).alias("lost"),
     )
-    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("tool")
 )
 per_tool = (
