@@ -358,3 +358,8 @@ def test_whole_frame_read_from_a_file(tmp_path, how: str) -> None:
 def test_days_counted_in_bins_of_several_days_are_lowered() -> None:
     result = convert(FRAME + 'result = df.resample("2D", on="ts")["v"].sum()\n')
     assert any(s.key == "frame.resample" and s.confidence == 0.95 for s in result.sites)
+
+
+def test_a_column_by_attribute() -> None:
+    result = differential(FRAME + 'result = df.resample("D", on="ts").v.sum()\n')
+    assert "TODO(porter)" not in result.converted_text
