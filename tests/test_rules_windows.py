@@ -578,3 +578,35 @@ def test_group_counts_do_not_wrap_around(expr: str) -> None:
     # Polars' UInt32 gave 4294967294, and a sum typed bool made + a logical or
     result = differential(FLAGS + f'df["w"] = {expr}\nresult = df\n')
     assert not result.todos, result.converted_text
+
+
+# -- ewm -----------------------------------------------------------------------------------------
+
+EWM = """\
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({
+    "v": [0.82, 0.33, np.nan, 0.91, np.nan, np.nan, -0.54, 1.5, None, 2.25, 0.0, -1.0],
+    "n": [3, 1, 4, 1, 5, 9, 2, 6, 5, 3, 5, 8],
+})
+"""
+
+
+@pytest.mark.parametrize("call", [
+    'df["v"].ewm(span=3).mean()',
+    'df["v"].ewm(alpha=0.3, adjust=False, ignore_na=True).mean()',
+    'df["v"].ewm(com=1.5, ignore_na=True).mean()',
+    'df["v"].ewm(halflife=2.0, min_periods=3).mean()',
+    'df["v"].ewm(span=4, min_periods=0).mean()',
+    'df["n"].ewm(alpha=0.5).mean() * 2',
+])
+def test_ewm_mean_matches_pandas(call: str) -> None:
+    # a gap keeps the mean so far (pandas), where Polars' ewm_mean leaves it missing
+    result = differential(EWM + f"result = df.assign(e={call})\n")
+    assert not result.todos, result.converted_text
+
+
+def test_ewm_mean_without_adjust_across_gaps_is_a_todo() -> None:
+    # pandas decays the old weight across a missing value; Polars does not
+    result = differential(EWM + 'result = df.assign(e=df["v"].ewm(span=3, adjust=False).mean())\n')
+    assert "series.ewm.mean" in [s.key for s in result.todos]

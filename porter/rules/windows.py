@@ -586,6 +586,62 @@ def expanding(call: PandasCall, ctx: RuleContext) -> Value:
     return Accessor(column.code, column=column, kind="expanding", options=(("min_periods", least),))
 
 
+_EWM_DECAYS = ("com", "span", "halflife", "alpha")
+
+
+@rule("series.ewm")
+def ewm(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.ewm(com= | span= | halflife= | alpha=, adjust=, ignore_na=, min_periods=) -> weights
+    waiting for their method (`series.ewm.mean`).
+
+    Caveats: times=, axis=, method= and a decay given twice are TODOs.
+    """
+    column = _column(call)
+    ctx.reject_unknown(call, *_EWM_DECAYS, "min_periods", "adjust", "ignore_na", positional=5)
+    given = [(name, call.const(name, i, None, kinds=(int, float)))
+             for i, name in enumerate(_EWM_DECAYS)]
+    decays = [(name, value) for name, value in given if value is not None]
+    if len(decays) != 1 or isinstance(decays[0][1], bool):
+        raise Unsupported("one of com, span, halflife, alpha must be given (pandas raises)")
+    options = [decays[0],
+               ("min_periods", call.const("min_periods", 4, 0, kinds=(int,))),
+               ("adjust", call.const("adjust", None, True, kinds=(bool,))),
+               ("ignore_na", call.const("ignore_na", None, False, kinds=(bool,)))]
+    _numeric(column, ctx)
+    return Accessor(column.code, column=column, kind="ewm", options=tuple(options))
+
+
+@rule("series.ewm.mean")
+def ewm_mean(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.ewm(...).mean() -> ewm_mean(...).forward_fill().
+
+    Handles: com, span, halflife (half_life) and alpha; adjust; ignore_na (ignore_nulls);
+    min_periods (min_samples, at least 1 as pandas counts it); a missing value keeps the mean
+    so far, as pandas does (forward_fill: Polars leaves it missing); checked against pandas on
+    random data with gaps.
+    Caveats: adjust=False with ignore_na=False is a TODO: pandas decays the old weight across
+    missing values, Polars does not (the same where the column has none).
+    """
+    column, options = _window_of(call)
+    ctx.reject_unknown(call, "numeric_only")
+    decay, value = next((k, v) for k, v in options.items() if k in _EWM_DECAYS)
+    if not options["adjust"] and not options["ignore_na"]:
+        raise Unsupported("adjust=False with ignore_na=False: pandas decays the old weight across "
+                          "missing values and Polars does not (ewm_mean(adjust=False) is the same "
+                          "where the column has no missing value)")
+    kwargs: dict[str, object] = {"half_life" if decay == "halflife" else decay: value}
+    if not options["adjust"]:
+        kwargs["adjust"] = False
+    least = max(int(options["min_periods"]), 1)  # type: ignore[call-overload]
+    if least != 1:
+        kwargs["min_samples"] = least
+    if options["ignore_na"]:
+        kwargs["ignore_nulls"] = True
+    ctx.lower("weights computed in another order can differ in the last digits", 0.98)
+    code = _numeric(column, ctx).method("ewm_mean", **kwargs).method("forward_fill")
+    return derived_column(column, code, dtype="float")
+
+
 def _last_digits(column: Column, how: str, kind: str, options: dict[str, object],
                  ctx: RuleContext) -> None:
     """Lower the confidence where Polars computes a window value another way than pandas

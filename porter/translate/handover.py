@@ -20,7 +20,7 @@ from porter.translate.values import (
 )
 
 
-WINDOW_KINDS = ("rolling", "expanding")
+WINDOW_KINDS = ("rolling", "expanding", "ewm")
 
 
 def _items(value: Items, convert: Callable[[Value], Code]) -> Code:

@@ -54,11 +54,10 @@ gaffers = pl.scan_csv(
     null_values=PANDAS_NA_VALUES,
     infer_schema_length=None,
 )
-print(
-    f"{log.select(pl.len()).collect().item()} readings, {log.select(pl.col('reading_id').drop_nulls().n_unique().cast(pl.Int64)).collect().to_series().to_numpy()[0]} distinct ids",
-)
+ids = log.select(pl.col("reading_id").drop_nulls().n_unique().cast(pl.Int64)).collect().to_series().to_numpy()[0]
+print(f"{log.select(pl.len()).collect().item()} readings, {ids} distinct ids")
 
-dupes = log.select(pl.len()).collect().item() - log.select(pl.col("reading_id").drop_nulls().n_unique().cast(pl.Int64)).collect().to_series().to_numpy()[0]
+dupes = log.select(pl.len().cast(pl.Int64) - pl.col("reading_id").drop_nulls().n_unique().cast(pl.Int64)).collect().to_series().to_numpy()[0]
 print("readings sent twice by the logger:", dupes)
 log = log.with_columns(furnace=clean_text(pl.col("furnace")))
 log = log.with_columns(gaffer=pl.col("gaffer").str.strip_chars().str.to_titlecase())
@@ -75,21 +74,13 @@ print("stamps that would not parse:", bad)
 log = log.drop_nulls("read_at")
 
 # smooth each furnace on its own, in time order
-log = (
-    log
-    .sort(["furnace", "read_at", "reading_id"], nulls_last=True, maintain_order=True)
-    .collect()
-    .lazy()
+log = log.sort(
+    ["furnace", "read_at", "reading_id"],
+    nulls_last=True,
+    maintain_order=True,
 )
-# TODO(porter): groupby.transform: part of the function has no expression form: porter has no rule
-#   for this API yet; a window expression: pl.when(key.is_not_null()).then(expr.over(key))
-# TODO(porter): frame.setitem: a Series computed by pandas, row for row from this frame, is put back
-#   by position; port the computation to an expression
 log = log.with_columns(
-    temp_smooth=pl.Series(
-        log.collect().to_pandas().groupby("furnace")["temp_c"].transform(lambda s: s.ewm(span=SPAN, ignore_na=True).mean()),
-        nan_to_null=True,
-    ),
+    temp_smooth=pl.when(pl.col("furnace").is_not_null()).then(pl.col("temp_c").cast(pl.Float64).ewm_mean(span=4, ignore_nulls=True).forward_fill().over("furnace")),
 )
 log = log.with_columns(temp_smooth=pl.col("temp_smooth").round(1))
 log = (
