@@ -149,3 +149,12 @@ boats = pd.DataFrame({"crew": [3, 2, 4, 1, 5, 6, 7]})
 pos = df[df["cars"] > 0]
 result = pos.merge(boats, left_index=True, right_index=True, how="left", indicator=True)
 """)
+
+
+@pytest.mark.parametrize("call", [
+    'df.groupby("leg")["cars"].agg(lambda s: sorted(s)[0])',
+    'df["boat"].str.normalize("NFKD").str.encode("ascii", errors="ignore").str.decode("ascii")',
+])
+def test_value_by_value_and_group_calls_after_a_filter_leave_the_filter_on_polars(call: str) -> None:
+    result = differential(HEAD + f'df = df.drop_duplicates()\ndf = df[df["cars"] > 0]\nresult = {call}\n')
+    assert "frame.labels" not in {s.key for s in result.sites}, result.converted_text

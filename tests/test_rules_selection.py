@@ -497,3 +497,9 @@ def test_rename_lambda_with_arguments_python_refuses_is_a_todo() -> None:
 def test_other_index_str_methods_stay_pandas(expr: str) -> None:
     found = differential(NAMES_FRAME + f"result = [bool(x) for x in {expr}]\n")
     assert "frame.columns.index" in found.converted_text
+
+
+def test_two_counts_of_one_frame_are_one_select() -> None:
+    # len(df) - df["k"].nunique(): both counted in one plan run, the integers as pandas'
+    result = differential(FRAME + 'result = len(df) - df["grade"].nunique() * 2\n')
+    assert result.converted_text.count(".collect()") == 1, result.converted_text

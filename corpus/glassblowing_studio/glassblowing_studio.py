@@ -18,7 +18,8 @@ def clean_text(s):
 
 log = pd.read_csv("data/furnace_log.csv", na_values=["off", "?"])
 gaffers = pd.read_csv("data/gaffers.csv")
-print(f"{len(log)} readings, {log['reading_id'].nunique()} distinct ids")
+ids = log["reading_id"].nunique()
+print(f"{len(log)} readings, {ids} distinct ids")
 
 dupes = len(log) - log["reading_id"].nunique()
 print("readings sent twice by the logger:", dupes)

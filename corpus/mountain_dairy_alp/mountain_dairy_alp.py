@@ -14,7 +14,7 @@ herders = pd.read_csv("data/herders.csv")
 alps = pd.read_csv("data/alps.csv")
 print("milk lines:", len(milk), "| blank litres:", milk["litres"].isna().sum())
 
-print("lines written twice:", milk.shape[0] - milk.drop_duplicates().shape[0])
+print("lines written twice:", milk.duplicated().sum())
 milk["alp"] = milk["alp"].str.strip().str.title().str.replace("Da", "da")
 milk["milking"] = milk["milking"].str.lower()
 milk["herder_key"] = milk["herder"].str.strip().str.lower()

@@ -36,7 +36,7 @@ orders = pd.read_csv("data/orders.csv", dtype={"order_no": str}, na_values=["??"
 fibres = pd.read_csv("data/fibres.csv")
 print("order lines:", len(orders))
 
-repeats = len(orders) - len(orders.drop_duplicates(subset="order_no"))
+repeats = orders.duplicated(subset="order_no").sum()
 print("order numbers used twice:", repeats)
 orders["fibre"] = normalise(orders["fibre"])
 orders["status"] = orders.status.str.strip().str.lower()

@@ -35,7 +35,7 @@ counts = pd.read_csv("data/counts.csv", na_values=["x", "not counted"])
 transects = pd.read_csv("data/transects.csv")
 print("lines read:", len(counts))
 # a flock can be counted twice on purpose (it moved between transects): lines are kept, only flagged
-print("lines entered twice:", len(counts) - len(counts.drop_duplicates()))
+print("lines entered twice:", counts.duplicated().sum())
 counts["transect"] = counts["transect"].str.strip().str.upper()
 counts["tide"] = counts.tide.str.strip().str.lower()
 

@@ -27,7 +27,7 @@ loans = pd.read_csv("data/loans.csv", na_values=["?"])
 tools = pd.read_csv("data/tools.csv")
 print("loans in the book:", len(loans))
 
-print("loan slips entered twice:", len(loans) - len(loans.drop_duplicates(subset=["loan_id"])))
+print("loan slips entered twice:", loans.duplicated(subset=["loan_id"]).sum())
 loans["tool"] = loans["tool"].str.strip().str.lower()
 loans["condition"] = loans["condition"].str.lower().fillna("not checked")
 loans["out_date"] = pd.to_datetime(loans["out_date"], format="%Y-%m-%d")

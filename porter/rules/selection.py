@@ -267,12 +267,13 @@ def shape(call: PandasCall, ctx: RuleContext) -> Value:
 def length(call: PandasCall, ctx: RuleContext) -> Value:
     """len(df) / len(s) -> .select(pl.len()).collect().item()."""
     receiver = call.receiver
-    if isinstance(receiver, Column):
-        return Scalar(row_count(receiver.frame), pytype="int")
     if isinstance(receiver, Parts):  # str.extract's frame: one row per row of the text's frame
         return Scalar(row_count(receiver.source.frame), pytype="int")
-    if isinstance(receiver, Frame):
-        return Scalar(row_count(receiver), pytype="int")
+    frame = receiver.frame if isinstance(receiver, Column) else receiver
+    if isinstance(frame, Frame):
+        # the count as an expression of its frame too (len(df) - df["k"].nunique(): one select)
+        counted = Column(emit.pl("len").method("cast", emit.atom("pl.Int64")), frame=frame, name=None)
+        return Scalar(row_count(frame), pytype="int", agg=counted)
     raise Unsupported("len of this value")
 
 

@@ -650,6 +650,9 @@ class Evaluator:
         if not (_is_series_like(left) or _is_series_like(right)):
             if isinstance(left, Frame) or isinstance(right, Frame):
                 return self.todo_operator(left, right, op, node)
+            combined = _one_select(left, right, op)
+            if combined is not None:
+                return combined
             result = self.generic(node)
             if isinstance(result, Opaque) and not result.is_const and op in ("+", "-", "*", "//", "%") \
                     and _whole_number(left) and _whole_number(right):
@@ -765,7 +768,8 @@ class Evaluator:
                          line, end_line, suggestion)
         fallback = handover.pandas_fallback(call, self.source, node)
         self.note_alignment(key, call)
-        labels_unread = key in _LABELS_NOT_READ and not {"left_index", "right_index"} & set(call.kwargs)
+        labels_unread = (key in _LABELS_NOT_READ or key.startswith(_ELEMENT_PREFIXES)) \
+            and not {"left_index", "right_index"} & set(call.kwargs)
         if key not in _ELEMENT_CALLS and not labels_unread \
                 and not (key == "frame.apply" and self.rows_without_labels(call)):
             self.note_handed_over(call.receiver)
@@ -824,6 +828,33 @@ class Evaluator:
             # built on a value handed over to pandas: a pandas object, never a plain scalar
             return PandasValue(Code(text, precedence(node)), sites=tuple(rewriter.sites))
         return Opaque(Code(text, precedence(node)), sites=tuple(rewriter.sites))
+
+
+def _one_select(left: Value, right: Value, op: str) -> Scalar | None:
+    """Whole numbers counted from one frame, and numbers written out (len(df) -
+    df["k"].nunique() * 2): one select of them all, so the frame's plan runs once (integer
+    arithmetic: exact, as pandas')."""
+    def part(value: Value) -> Code | None:
+        if isinstance(value, Scalar) and value.pytype == "int" and value.agg is not None:
+            return value.agg.code
+        if isinstance(value, Opaque) and type(value.const) is int:  # a whole number written out
+            return emit.lit(value.const)
+        return None
+
+    counted = [v for v in (left, right) if isinstance(v, Scalar) and v.agg is not None]
+    a, b = part(left), part(right)
+    if op not in ("+", "-", "*") or a is None or b is None or not counted \
+            or len({v.agg.frame.rows for v in counted}) != 1:  # type: ignore[union-attr]
+        return None
+    agg = counted[0].agg
+    assert agg is not None
+    expr = emit.binop(a, op, b)
+    code = agg.frame.code.method("select", expr).method("collect")
+    if all(v.code.text.endswith(".item()") for v in counted):
+        code = code.method("item")  # Python ints, as len() and nunique() give
+    else:  # numpy's int64, as a sum gives (it divides by zero to inf, not an error)
+        code = code.method("to_series").method("to_numpy").index(0)
+    return Scalar(code, pytype="int", agg=replace(agg, code=expr), sites=left.sites + right.sites)
 
 
 def _whole_number(value: Value) -> bool:
@@ -888,7 +919,13 @@ _LABELS_NOT_READ = frozenset({
     "frame.value_counts", "frame.nunique", "series.nunique", "frame.corr", "frame.cov",
     "series.mode", "frame.mode", "series.unique", "frame.to_numpy", "series.to_numpy",
     "series.tolist", "series.to_list", "frame.memory_usage", "frame.dtypes",
+    # a group's aggregate is labelled by its keys
+    "groupby.agg", "groupby.aggregate", "groupby.sum", "groupby.mean", "groupby.median",
+    "groupby.min", "groupby.max", "groupby.count", "groupby.size", "groupby.nunique",
+    "groupby.std", "groupby.var", "groupby.first", "groupby.last", "groupby.quantile",
 })
+# text and date methods work value by value: the result keeps the labels without reading them
+_ELEMENT_PREFIXES = ("series.str.", "series.dt.")
 
 
 def _only_by_column(body: cst.CSTNode, param: str) -> bool:

@@ -81,7 +81,7 @@ fibres = pl.scan_csv(
 )
 print("order lines:", orders.select(pl.len()).collect().item())
 
-repeats = orders.select(pl.len()).collect().item() - orders.unique("order_no", keep="first", maintain_order=True).select(pl.len()).collect().item()
+repeats = orders.select(pl.col("order_no").is_first_distinct().not_().sum().cast(pl.Int64)).collect().to_series().to_numpy()[0]
 print("order numbers used twice:", repeats)
 orders = orders.with_columns(fibre=normalise(pl.col("fibre")))
 orders = orders.with_columns(
