@@ -634,3 +634,31 @@ def test_counts_over_text_with_a_missing_value_are_float_in_pandas(call: str) ->
     key = "series.str.len" if "len" in call else "series.str.count"
     assert any(s.key == key and s.confidence == 0.95 and "float64" in s.message
                for s in converted.sites), converted.sites
+
+
+# -- normalize, and the encode / decode round trip that folds accents -----------------------------
+
+ACCENTS = """\
+import pandas as pd
+df = pd.DataFrame({"name": ["Crème brûlée", "Zürich", "ﬁne", "Ærø", None, "ß", "北京", "naïve café",
+                            "", "Ǆ", "①", "x\\u00a0y"]})
+"""
+
+
+@pytest.mark.parametrize("call", [
+    'df["name"].str.normalize("NFKD").str.encode("ascii", errors="ignore").str.decode("ascii")',
+    'df["name"].str.normalize("NFKD").str.encode("ascii", "ignore").str.decode("utf-8").str.lower()',
+    'df["name"].str.encode("ascii", errors="ignore").str.decode("ascii")',
+    'df["name"].str.normalize("NFC")',
+    'df["name"].str.normalize("NFD").str.len()',
+    'df["name"].str.normalize("NFKC")',
+])
+def test_normalize_and_ascii_folding_match_pandas(call: str) -> None:
+    result = differential(ACCENTS + f"result = df.assign(out={call})\n")
+    assert not result.todos, result.converted_text
+
+
+def test_bytes_used_other_than_decoded_stay_pandas() -> None:
+    # pandas' bytes have no Polars counterpart here: made again by pandas, and right
+    result = differential(ACCENTS + 'result = df["name"].str.encode("ascii", errors="ignore").tolist()\n')
+    assert any(s.key == "series.encoded.tolist" for s in result.todos), result.converted_text

@@ -9,6 +9,7 @@ Patterns written for Python's `re` are checked before they reach Polars' Rust re
 from __future__ import annotations
 
 from collections.abc import Iterator
+from dataclasses import dataclass, field, replace as _replace
 import math
 import re
 import re._constants as _C  # noqa: PLC2701 - the parse tree is how Python reads a pattern
@@ -26,7 +27,7 @@ from porter.translate import handover
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, accessor_column, check_same_rows, derived_column,
 )
-from porter.translate.values import Column, Frame, Opaque, Parts, Value
+from porter.translate.values import Column, Frame, Opaque, Parts, Value, fresh_token
 
 INT64 = emit.atom("pl.Int64")
 # pandas' counts over text are float64 once a value is missing (int64 otherwise); Polars keeps
@@ -835,3 +836,77 @@ def join(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo("str.join of a column not known to hold lists (pandas puts the separator "
                        "between the characters of text)")
     return _string(column, column.code.attr("list").method("join", sep))
+
+
+# -- normalize, and the encode / decode round trip that folds accents -----------------------------
+
+_FORMS = ("NFC", "NFD", "NFKC", "NFKD")
+_ASCII = ("ascii", "us-ascii", "us_ascii", "646")
+
+
+@rule("series.str.normalize")
+def normalize(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str.normalize(form) -> str.normalize(form).
+
+    Handles: NFC, NFD, NFKC and NFKD, checked against pandas on accents, ligatures, compatibility
+    characters and missing values.
+    Caveats: Python's and Polars' Unicode tables can be of different Unicode versions, which
+    matters only for characters added lately (0.99).
+    """
+    column = text_column(call, ctx)
+    ctx.reject_unknown(call, "form", positional=1)
+    form = call.const("form", 0, kinds=(str,))
+    if form not in _FORMS:
+        raise Unsupported(f"form={form!r} (pandas raises)")
+    ctx.lower("Python's and Polars' Unicode tables may be of different versions (characters "
+              "added lately)", 0.99)
+    return _string(column, _text(column).method("normalize", form))
+
+
+@dataclass(frozen=True)
+class Encoded(Column):
+    """s.str.encode("ascii", errors="ignore"): pandas' bytes, which Polars has no text methods
+    for. Only .str.decode("ascii" | "utf-8") is ported (the text without what ASCII cannot
+    hold, which is what the round trip gives); its rows are its own, so any other use hands it
+    to pandas, which makes the bytes again (`pandas`)."""
+
+    text: Column = field(kw_only=True)  # the ASCII text, an expression of the frame encoded
+    pandas: Code = field(kw_only=True)
+    key_prefix: str = field(default="series.encoded", kw_only=True)
+
+
+@rule("series.str.encode")
+def encode(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.str.encode("ascii", errors="ignore") -> bytes waiting for .str.decode (see Encoded).
+
+    Handles: the accent-folding idiom s.str.normalize("NFKD").str.encode("ascii",
+    errors="ignore").str.decode("ascii"): every character beyond ASCII dropped.
+    Caveats: other encodings and error handlers, and bytes used other than decoded, are TODOs.
+    """
+    column = text_column(call, ctx)
+    ctx.reject_unknown(call, "encoding", "errors", positional=2)
+    encoding = call.const("encoding", 0, kinds=(str,))
+    errors = call.const("errors", 1, "strict", kinds=(str,))
+    if encoding.lower() not in _ASCII or errors != "ignore":
+        raise Unsupported(f"encode({encoding!r}, errors={errors!r}): only ASCII with "
+                          "errors='ignore' is ported (the text without what ASCII cannot hold)")
+    if column.dtype not in ("str", None):
+        raise Unsupported(f"a {column.dtype} column")
+    text = _string(column, _text(column).method("replace_all", r"[^\x00-\x7F]", ""))
+    pandas = handover.to_pandas(column).attr("str").method("encode", encoding, errors=errors)
+    frame = _replace(column.frame, rows=fresh_token())  # not an expression of the frame: bytes
+    return Encoded(text.code, frame=frame, name=column.name, dtype=None, text=text, pandas=pandas)
+
+
+@rule("series.str.decode")
+def decode(call: PandasCall, ctx: RuleContext) -> Value:
+    """bytes.str.decode("ascii" | "utf-8") of s.str.encode("ascii", errors="ignore") -> the
+    text without what ASCII cannot hold."""
+    column = accessor_column(call)
+    ctx.reject_unknown(call, "encoding", "errors", positional=2)
+    if not isinstance(column, Encoded):
+        raise Unsupported("decoding bytes porter did not make")
+    encoding = call.const("encoding", 0, kinds=(str,))
+    if encoding.lower() not in (*_ASCII, "utf-8", "utf8", "latin-1", "latin1"):
+        raise Unsupported(f"decode({encoding!r})")
+    return column.text

@@ -71,13 +71,16 @@ milk = milk.with_columns(
     herder_key=pl.col("herder").str.strip_chars().str.to_lowercase(),
 )
 # fold the accents away: é -> e, ü -> u, å -> a
-milk = milk.collect().to_pandas()
-# TODO(porter): frame.getitem.column: kept on pandas with the statement it is in
-# TODO(porter): series.str.normalize: porter has no rule for this API yet
-# TODO(porter): frame.setitem: a Series computed by pandas whose rows porter cannot match to the
-#   frame's (pandas aligns it on the index): the statement stays pandas
-milk["herder_key"] = milk["herder_key"].str.normalize("NFKD").str.encode("ascii", errors="ignore").str.decode("ascii")
-milk = pl.from_pandas(milk).lazy()
+milk = (
+    milk
+    .with_columns(
+        herder_key=pl.col("herder_key")
+        .str.normalize("NFKD")
+        .str.replace_all("[^\\x00-\\x7F]", ""),
+    )
+    .collect()
+    .lazy()
+)
 print(
     milk.select(pl.col("herder_key"))
     .drop_nulls()
