@@ -9,6 +9,7 @@ Polars' execution entry points wrapped, and counts, per input file, the plans th
 from __future__ import annotations
 
 import json
+import textwrap
 from pathlib import Path
 import shutil
 import subprocess
@@ -164,3 +165,26 @@ def test_a_groupby_bound_to_a_name_runs_its_frames_plan():
         ''')
     kept = text[text.index("kept ="):text.index("sink_csv")]
     assert ".collect()" in kept, text
+
+
+def test_a_frame_handed_to_pandas_before_a_loop_is_collected_once(tmp_path) -> None:
+    # the put-back of a row function runs the plan, and so does every later output: the loop
+    # that rebinds the frame between them had cut the chain, so the plan ran twice
+    from support import convert
+    text = convert(textwrap.dedent('''
+        import pandas as pd
+        def f(row):
+            total = 0
+            for c in ("n", "x"):
+                total += 1 if row[c] == row[c] else 0
+            return total
+        df = pd.read_csv("e2.csv")
+        df["k"] = df["k"].str.strip()
+        df["h"] = df.apply(f, axis=1)
+        df["s"] = 0
+        for c in ["n", "x"]:
+            df["s"] = df["s"] + df[c].isna()
+        df.to_csv("o.csv", index=False)
+        print(df["s"].sum())
+        ''')).converted_text
+    assert 'df = df.with_columns(k=pl.col("k").str.strip_chars()).collect().lazy()' in text, text

@@ -1502,10 +1502,13 @@ def _merge(a: dict[str, Value], b: dict[str, Value]) -> dict[str, Value]:
             merged[name] = x
         elif isinstance(x, Frame) and isinstance(y, Frame):
             common = x.columns if x.columns == y.columns else None
+            # named after the later path's binding (a loop's body, which was made from the
+            # frame before the loop), so the plans made from it still lead back to it
             merged[name] = Frame(emit.atom(name), columns=common,
                                  dtypes=tuple(set(x.dtypes) & set(y.dtypes)),
                                  index=x.index if x.index == y.index else (),
-                                 labels_intact=False)
+                                 labels_intact=False,
+                                 binding=y.binding if y.binding is not None else x.binding)
         elif type(x) is type(y) and isinstance(x, (PandasValue, Scalar, Module)):
             merged[name] = x
         else:

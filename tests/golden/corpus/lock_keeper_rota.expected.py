@@ -74,7 +74,7 @@ rota = rota.with_columns(lock=pl.col("lock").str.strip_chars())
 rota = rota.with_columns(
     lock=pl.when(pl.col("lock").str.len_chars() > 0).then(pl.col("lock").str.slice(0, 1)).str.to_uppercase() + pl.col("lock").str.slice(1),
 )
-rota = rota.rename({"boats_through": "boats"}, strict=False)
+rota = rota.rename({"boats_through": "boats"}, strict=False).collect().lazy()
 
 # TODO(porter): frame.apply: a loop or a block that only a Python call can run; write the function
 #   as column expressions (pl.when / arithmetic); map_elements is a last resort
