@@ -178,3 +178,19 @@ def test_calls_that_read_the_labels_of_a_sorted_frame_see_pandas_labels():
         kept = df[df["crates"] > 1]
         in_file_order = kept.sort_index()
         ''', "numbered", "heaviest", "in_file_order")
+
+
+def test_a_column_helper_called_on_two_columns_is_ported():
+    # the first pass, before the helper was known, handed the frame to pandas at its first
+    # call, so the second call passed a pandas Series: that call no longer stops the learning
+    text = both('''
+        import pandas as pd
+        def tidy(s):
+            return s.str.strip().str.lower()
+        df = pd.read_csv("cargo.csv")
+        df["berth"] = tidy(df["berth"])
+        df["skipper"] = tidy(df["skipper"])
+        result = df
+        ''', "result")
+    assert "TODO(porter)" not in text, text
+    assert 'tidy(pl.col("skipper"))' in text

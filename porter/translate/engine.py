@@ -116,6 +116,9 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     for _ in range(10):
         labels_before = set(services.labels_needed)
         services.call_sites = {}
+        # what each plan feeds is the last pass's: an earlier pass may have handed frames over
+        # that the functions learnt since keep in Polars
+        services.consumers, services.frame_parents = {}, {}
         walker = _Walker(services, facts, emit_code=False)
         walker.block(module.body, _initial_env(facts), module.default_indent, "")
         if services.labels_needed == labels_before:

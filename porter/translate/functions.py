@@ -12,7 +12,9 @@ import libcst as cst
 from porter.analysis.mutations import changed_in_place
 from porter.emit.code import Code
 from porter.translate.evaluate import LocalFunction, Services
-from porter.translate.values import Column, Frame, Grouped, Opaque, Scalar, Value, fresh_token
+from porter.translate.values import (
+    Column, Frame, Grouped, Opaque, PandasValue, Scalar, Value, fresh_token,
+)
 
 
 def discover_functions(module: cst.Module) -> list[LocalFunction]:
@@ -203,6 +205,11 @@ def _column_params(function: LocalFunction, calls: list[tuple[Value, ...]],
     anywhere, and the body is names bound to expressions and one `return` at its end."""
     if not calls or definition is None or function.mutated_params or not _expression_body(definition):
         return {}
+    if not function.column_params:
+        # still learning: a call given values an earlier statement handed to pandas (because
+        # the function was not known yet) says nothing; the next pass checks every call again
+        columned = [c for c in calls if not any(isinstance(v, PandasValue) for v in c)]
+        calls = columned if columned else calls
     found: dict[str, set[str | None]] = {}
     for call in calls:
         if len(call) != len(function.params):

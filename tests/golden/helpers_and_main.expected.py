@@ -38,7 +38,7 @@ def per_route(tickets):
 
 
 def main():
-    tickets = load("tickets.csv").collect().lazy()
+    tickets = load("tickets.csv")
     summary = per_route(tickets).collect().lazy()
     (
         summary

@@ -92,14 +92,10 @@ def price(passages, tariffs):
 def main():
     passages = load_passages("data/passages.csv").collect().lazy()
     tariffs = load_tariffs("data/tariffs.csv").collect().lazy()
-    locks = (
-        pl.scan_csv(
-            "data/locks.csv",
-            null_values=PANDAS_NA_VALUES,
-            infer_schema_length=None,
-        )
-        .collect()
-        .lazy()
+    locks = pl.scan_csv(
+        "data/locks.csv",
+        null_values=PANDAS_NA_VALUES,
+        infer_schema_length=None,
     )
     print(
         passages.select(pl.len()).collect().item(),

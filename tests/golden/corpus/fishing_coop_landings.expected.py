@@ -109,14 +109,10 @@ landings = (
     .collect()
     .lazy()
 )
-quota = (
-    pl.scan_csv(
-        "data/quota.csv",
-        null_values=PANDAS_NA_VALUES,
-        infer_schema_length=None,
-    )
-    .collect()
-    .lazy()
+quota = pl.scan_csv(
+    "data/quota.csv",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
 )
 print(
     landings.select(pl.col("species").unique(maintain_order=True))

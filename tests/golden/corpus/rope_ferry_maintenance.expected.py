@@ -77,17 +77,11 @@ jobs = (
         infer_schema_length=None,
     )
     .with_columns(pl.col("done_on").str.to_datetime(time_unit="us"))
-    .collect()
-    .lazy()
 )
-prices = (
-    pl.scan_csv(
-        "data/parts_prices.csv",
-        null_values=PANDAS_NA_VALUES,
-        infer_schema_length=None,
-    )
-    .collect()
-    .lazy()
+prices = pl.scan_csv(
+    "data/parts_prices.csv",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
 )
 jobs = clean_jobs(jobs)
 
@@ -95,7 +89,7 @@ jobs = clean_jobs(jobs)
 jobs = jobs.with_columns(part=pl.col("parts_used").str.split(";")).collect().lazy()
 lines = jobs.explode("part", empty_as_null=True, keep_nulls=True)
 lines = lines.with_columns(part=pl.col("part").str.strip_chars().str.to_lowercase())
-lines = lines.filter(pl.col("part").ne_missing(pl.lit(""))).collect().lazy()
+lines = lines.filter(pl.col("part").ne_missing(pl.lit("")))
 lines = price_parts(lines, prices)
 lines = (
     lines

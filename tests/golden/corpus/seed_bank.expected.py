@@ -79,15 +79,11 @@ def species_summary(tests):
 
 
 tests = add_rates(load_tests("data/germination_tests.csv")).collect().lazy()
-registry = (
-    pl.scan_csv(
-        "data/accessions.csv",
-        null_values=PANDAS_NA_VALUES,
-        schema_overrides={"accession_id": pl.String},
-        infer_schema_length=None,
-    )
-    .collect()
-    .lazy()
+registry = pl.scan_csv(
+    "data/accessions.csv",
+    null_values=PANDAS_NA_VALUES,
+    schema_overrides={"accession_id": pl.String},
+    infer_schema_length=None,
 )
 rated = attach_registry(tests, registry).collect().lazy()
 print(
