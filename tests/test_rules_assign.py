@@ -37,8 +37,8 @@ PORTS = [
                  id="name that is not an identifier"),
     pytest.param('df[["kg", "n"]] = 0', "kg=pl.lit(0, dtype=pl.Int64), n=pl.lit(0, dtype=pl.Int64)",
                  id="one value into several columns"),
-    pytest.param('df["rows"] = len(df)', "rows=pl.lit(df.select(pl.len()).collect().item(), dtype=pl.Int64)",
-                 id="a count broadcast is Int64"),
+    pytest.param('df["rows"] = len(df)', "rows=pl.len().cast(pl.Int64)",
+                 id="a count of the frame itself is an Int64 expression"),
     pytest.param('r = df.assign(d=lambda d: d["kg"] * 2, e=lambda d: d["d"] + 1)',
                  'df.with_columns(d=pl.col("kg") * 2).with_columns(e=pl.col("d") + 1)',
                  id="assign keyword using an earlier one"),
@@ -305,8 +305,9 @@ def test_astype_bool_of_booleans_with_a_blank_is_true(tmp_path, monkeypatch) -> 
 
 def test_arithmetic_on_whole_numbers_is_one_int64_value() -> None:
     # len(df) * 3 is a whole number: no doubt that it is a single value, and Int64 as in pandas
-    result = convert(FRAME + 'df["c"] = len(df) * 3 + 1\n')
-    assert "dtype=pl.Int64" in result.converted_text, result.converted_text
+    # (counted in the frame itself, without a collect)
+    result = differential(FRAME + 'df["c"] = len(df) * 3 + 1\nresult = df\n')
+    assert "pl.len().cast(pl.Int64) * 3 + 1" in result.converted_text, result.converted_text
     assert all(s.confidence == 1.0 for s in result.sites if s.key == "frame.setitem"), result.sites
 
 
