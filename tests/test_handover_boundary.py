@@ -739,3 +739,17 @@ def test_lists_of_text_made_by_pandas_come_back_as_lists(codes):
         first = df["first"].tolist()
     """, "out", "first", data_dir=".").converted_text
     assert ".list.get(0" in text and "pl.Series(" in text
+
+
+def test_a_group_call_left_on_pandas_gets_only_the_columns_it_reads():
+    # a groupby of one column with the script's own function: the keys and that column go over
+    text = both("""
+        import pandas as pd
+        def spread(s):
+            values = sorted(v for v in s if v == v)
+            return values[-1] - values[0] if values else 0.0
+        df = pd.read_csv("cargo.csv")
+        df["tons2"] = df["tons"] * 2
+        result = df.groupby("kind")["tons2"].agg(spread).reset_index()
+    """, "result")
+    assert 'df.select("kind", "tons2").collect().to_pandas().groupby("kind")' in text, text

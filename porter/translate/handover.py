@@ -9,6 +9,7 @@ import ast
 import keyword
 import re
 from collections.abc import Callable
+from dataclasses import replace
 
 import libcst as cst
 
@@ -138,7 +139,15 @@ def to_pandas(value: Value) -> Code:
             args["group_keys"] = False
         # `groupby(["k"])` as written: pandas gives its groups 1-tuple keys then
         keys = list(value.keys) if value.key_list else emit.names_arg(value.keys)
-        code = to_pandas(value.frame).method("groupby", keys, **args)
+        frame = value.frame
+        if value.selection is not None:
+            # only the keys and the columns taken go over (the rest would be copied for nothing)
+            needed = list(dict.fromkeys((*frame.index, *value.keys, *value.selection)))
+            if frame.columns is None or set(needed) <= set(frame.columns):
+                frame = replace(frame, code=frame.code.method("select", *needed),
+                                columns=tuple(needed) if frame.columns is not None else None,
+                                dtypes=tuple((c, t) for c, t in frame.dtypes if c in needed))
+        code = to_pandas(frame).method("groupby", keys, **args)
         if value.selection is not None:
             code = code.index(value.selection[0] if value.single else list(value.selection))
         return code

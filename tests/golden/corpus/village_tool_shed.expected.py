@@ -125,7 +125,7 @@ loans = (
 )
 
 # TODO(porter): groupby.agg: aggregation longest_idle (a function porter cannot read)
-idle = loans.collect().to_pandas().fillna({"lost": float("nan"), "broken": float("nan")}).groupby("tool")["out_date"].agg(longest_idle).reset_index()
+idle = loans.select("tool", "out_date").collect().to_pandas().groupby("tool")["out_date"].agg(longest_idle).reset_index()
 idle = pl.from_pandas(idle).lazy()
 idle = idle.rename({"out_date": "longest_idle_days"}, strict=False).collect().lazy()
 print(idle.head(5).collect())
