@@ -352,6 +352,11 @@ class Evaluator:
         """df.apply(f, axis=1) whose function reads its row only by column (row["kg"],
         row.kg): the result does not depend on the row labels (row.name), and pandas' result
         has the frame's rows in order, so it can be put back on them."""
+        return self.row_fields(call) is not None
+
+    def row_fields(self, call: PandasCall) -> set[str] | None:
+        """The names df.apply(f)'s function reads its row by (row["kg"], row.kg), when it reads
+        it by nothing else; None otherwise."""
         function = call.args[0] if call.args else call.kwargs.get("func")
         node = function.node if isinstance(function, Opaque) else None
         if isinstance(node, cst.Name):
@@ -361,10 +366,20 @@ class Evaluator:
         elif isinstance(node, cst.FunctionDef):
             params, body = node.params.params, node.body
         else:
-            return False
+            return None
         if len(params) != 1:
-            return False
-        return _only_by_column(body, params[0].name.value)
+            return None
+        # `for col in SHIFTS: row[col]` with SHIFTS a list of names written out: those names
+        loops: dict[str, set[str]] = {}
+        for loop in _for_loops(body):
+            names = self.env.get(loop.iter.value) if isinstance(loop.iter, cst.Name) else \
+                self.evaluate_with(loop.iter, {}) if isinstance(loop.iter, (cst.List, cst.Tuple)) \
+                else None
+            if isinstance(loop.target, cst.Name) and isinstance(names, Opaque) and names.is_const \
+                    and isinstance(names.const, (list, tuple)) \
+                    and all(isinstance(n, str) for n in names.const):
+                loops[loop.target.value] = set(names.const)
+        return _fields_read(body, params[0].name.value, loops)
 
     def note_handed_over(self, value: Value | None) -> None:
         """A frame or Series (or the frame of a groupby) given to pandas code porter does not
@@ -766,6 +781,20 @@ class Evaluator:
         message = reason if not advice or advice == reason else f"{reason}; {advice}"
         site = SiteDraft(key, entry.rule or "todo" if entry else "todo", "todo", 0.0, message,
                          line, end_line, suggestion)
+        if key == "frame.apply" and isinstance(call.receiver, Frame):
+            fields = self.row_fields(call)
+            frame = call.receiver
+            if fields is not None and frame.columns is not None and fields <= set(frame.columns) \
+                    and len(fields) < len(frame.columns) and not frame.index \
+                    and any(frame.dtype(c) == "str" for c in fields):
+                # pandas builds each row from every column: only the ones the function reads
+                # go over (in the frame's order). A text column among them keeps the row an
+                # object Series either way, so each value keeps its type (a row of numbers
+                # alone would be made float)
+                kept = tuple(c for c in frame.columns if c in fields)
+                call = replace(call, receiver=replace(
+                    frame, code=frame.code.method("select", *kept), columns=kept,
+                    dtypes=tuple((c, t) for c, t in frame.dtypes if c in fields)))
         fallback = handover.pandas_fallback(call, self.source, node)
         self.note_alignment(key, call)
         labels_unread = (key in _LABELS_NOT_READ or key.startswith(_ELEMENT_PREFIXES)) \
@@ -928,34 +957,58 @@ _LABELS_NOT_READ = frozenset({
 _ELEMENT_PREFIXES = ("series.str.", "series.dt.")
 
 
-def _only_by_column(body: cst.CSTNode, param: str) -> bool:
-    """`param` is read in `body` only as param[...] or param.<column>, never as param.name
-    (the row's label) or passed on whole."""
-    ok = True
+def _for_loops(body: cst.CSTNode) -> list[cst.For]:
+    found: list[cst.For] = []
+
+    class Loops(cst.CSTVisitor):
+        def visit_For(self, node: cst.For) -> None:
+            found.append(node)
+
+    body.visit(Loops())
+    return found
+
+
+def _fields_read(body: cst.CSTNode, param: str,
+                 loops: dict[str, set[str]] | None = None) -> set[str] | None:
+    """The names `param` is read by in `body` (param["kg"], param.kg), when it is read only so:
+    never as param.name (the row's label), by a computed key, or passed on whole; else None."""
+    fields: set[str] | None = set()
 
     class Uses(cst.CSTVisitor):
         def visit_Subscript(self, node: cst.Subscript) -> bool:
+            nonlocal fields
             if isinstance(node.value, cst.Name) and node.value.value == param:
+                key = node.slice[0].slice if len(node.slice) == 1 else None
+                if isinstance(key, cst.Index) and isinstance(key.value, cst.SimpleString) \
+                        and fields is not None:
+                    fields.add(key.value.evaluated_value)  # type: ignore[arg-type]
+                elif isinstance(key, cst.Index) and isinstance(key.value, cst.Name) \
+                        and key.value.value in (loops or {}) and fields is not None:
+                    fields |= (loops or {})[key.value.value]  # a loop over names written out
+                else:
+                    fields = None  # a computed key: any column
                 for element in node.slice:
                     element.visit(self)
                 return False
             return True
 
         def visit_Attribute(self, node: cst.Attribute) -> bool:
+            nonlocal fields
             if isinstance(node.value, cst.Name) and node.value.value == param:
-                nonlocal ok
-                ok = ok and node.attr.value not in ("name", "get", "items", "iteritems",
-                                                    "to_dict", "keys")
+                if node.attr.value in ("name", "get", "items", "iteritems", "to_dict", "keys"):
+                    fields = None
+                elif fields is not None:
+                    fields.add(node.attr.value)
                 return False
             return True
 
         def visit_Name(self, node: cst.Name) -> None:
-            nonlocal ok
+            nonlocal fields
             if node.value == param:
-                ok = False
+                fields = None
 
     body.visit(Uses())
-    return ok
+    return fields
 
 
 def _side_by_side(call: PandasCall) -> bool:
