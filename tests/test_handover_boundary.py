@@ -753,26 +753,3 @@ def test_a_group_call_left_on_pandas_gets_only_the_columns_it_reads():
         result = df.groupby("kind")["tons2"].agg(spread).reset_index()
     """, "result")
     assert 'df.select("kind", "tons2").collect().to_pandas().groupby("kind")' in text, text
-
-
-@pytest.mark.parametrize("fields, narrowed", [
-    # text and numbers read: the row is an object Series with or without the other columns
-    ('("berth", "crates")', True),
-    # numbers only: pandas' row of every column is an object Series (berth is text) and keeps
-    # each value's type; a row of crates and tons alone would be all float: not narrowed
-    ('("crates", "tons")', False),
-])
-def test_a_row_function_gets_the_columns_it_reads(fields: str, narrowed: bool):
-    text = differential(textwrap.dedent(f"""
-        import pandas as pd
-        def tag(row):
-            parts = []
-            for name in {fields}:  # a loop: kept on pandas
-                parts.append(str(row[name]))
-            return "-".join(parts)
-        df = pd.read_csv("cargo.csv", dtype={{"berth": str, "kind": str, "tons": float, "crates": float}})
-        df["tag"] = df.apply(tag, axis=1)
-        result = df
-    """), "result", data_dir=Path(".")).converted_text
-    assert "TODO(porter): frame.apply" in text
-    assert ('.select("berth", "crates")' in text) is narrowed, text

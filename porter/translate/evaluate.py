@@ -781,20 +781,6 @@ class Evaluator:
         message = reason if not advice or advice == reason else f"{reason}; {advice}"
         site = SiteDraft(key, entry.rule or "todo" if entry else "todo", "todo", 0.0, message,
                          line, end_line, suggestion)
-        if key == "frame.apply" and isinstance(call.receiver, Frame):
-            fields = self.row_fields(call)
-            frame = call.receiver
-            if fields is not None and frame.columns is not None and fields <= set(frame.columns) \
-                    and len(fields) < len(frame.columns) and not frame.index \
-                    and any(frame.dtype(c) == "str" for c in fields):
-                # pandas builds each row from every column: only the ones the function reads
-                # go over (in the frame's order). A text column among them keeps the row an
-                # object Series either way, so each value keeps its type (a row of numbers
-                # alone would be made float)
-                kept = tuple(c for c in frame.columns if c in fields)
-                call = replace(call, receiver=replace(
-                    frame, code=frame.code.method("select", *kept), columns=kept,
-                    dtypes=tuple((c, t) for c, t in frame.dtypes if c in fields)))
         fallback = handover.pandas_fallback(call, self.source, node)
         self.note_alignment(key, call)
         labels_unread = (key in _LABELS_NOT_READ or key.startswith(_ELEMENT_PREFIXES)) \
