@@ -350,13 +350,8 @@ class Evaluator:
 
     def rows_without_labels(self, call: PandasCall) -> bool:
         """df.apply(f, axis=1) whose function reads its row only by column (row["kg"],
-        row.kg): the result does not depend on the row labels (row.name), and pandas' result
-        has the frame's rows in order, so it can be put back on them."""
-        return self.row_fields(call) is not None
-
-    def row_fields(self, call: PandasCall) -> set[str] | None:
-        """The names df.apply(f)'s function reads its row by (row["kg"], row.kg), when it reads
-        it by nothing else; None otherwise."""
+        row.kg, row[name]): the result does not depend on the row labels (row.name), and
+        pandas' result has the frame's rows in order, so it can be put back on them."""
         function = call.args[0] if call.args else call.kwargs.get("func")
         node = function.node if isinstance(function, Opaque) else None
         if isinstance(node, cst.Name):
@@ -366,20 +361,8 @@ class Evaluator:
         elif isinstance(node, cst.FunctionDef):
             params, body = node.params.params, node.body
         else:
-            return None
-        if len(params) != 1:
-            return None
-        # `for col in SHIFTS: row[col]` with SHIFTS a list of names written out: those names
-        loops: dict[str, set[str]] = {}
-        for loop in _for_loops(body):
-            names = self.env.get(loop.iter.value) if isinstance(loop.iter, cst.Name) else \
-                self.evaluate_with(loop.iter, {}) if isinstance(loop.iter, (cst.List, cst.Tuple)) \
-                else None
-            if isinstance(loop.target, cst.Name) and isinstance(names, Opaque) and names.is_const \
-                    and isinstance(names.const, (list, tuple)) \
-                    and all(isinstance(n, str) for n in names.const):
-                loops[loop.target.value] = set(names.const)
-        return _fields_read(body, params[0].name.value, loops)
+            return False
+        return len(params) == 1 and _only_by_column(body, params[0].name.value)
 
     def note_handed_over(self, value: Value | None) -> None:
         """A frame or Series (or the frame of a groupby) given to pandas code porter does not
@@ -943,58 +926,34 @@ _LABELS_NOT_READ = frozenset({
 _ELEMENT_PREFIXES = ("series.str.", "series.dt.")
 
 
-def _for_loops(body: cst.CSTNode) -> list[cst.For]:
-    found: list[cst.For] = []
-
-    class Loops(cst.CSTVisitor):
-        def visit_For(self, node: cst.For) -> None:
-            found.append(node)
-
-    body.visit(Loops())
-    return found
-
-
-def _fields_read(body: cst.CSTNode, param: str,
-                 loops: dict[str, set[str]] | None = None) -> set[str] | None:
-    """The names `param` is read by in `body` (param["kg"], param.kg), when it is read only so:
-    never as param.name (the row's label), by a computed key, or passed on whole; else None."""
-    fields: set[str] | None = set()
+def _only_by_column(body: cst.CSTNode, param: str) -> bool:
+    """`param` is read in `body` only as param[...] or param.<column>, never as param.name
+    (the row's label) or passed on whole."""
+    ok = True
 
     class Uses(cst.CSTVisitor):
         def visit_Subscript(self, node: cst.Subscript) -> bool:
-            nonlocal fields
             if isinstance(node.value, cst.Name) and node.value.value == param:
-                key = node.slice[0].slice if len(node.slice) == 1 else None
-                if isinstance(key, cst.Index) and isinstance(key.value, cst.SimpleString) \
-                        and fields is not None:
-                    fields.add(key.value.evaluated_value)  # type: ignore[arg-type]
-                elif isinstance(key, cst.Index) and isinstance(key.value, cst.Name) \
-                        and key.value.value in (loops or {}) and fields is not None:
-                    fields |= (loops or {})[key.value.value]  # a loop over names written out
-                else:
-                    fields = None  # a computed key: any column
                 for element in node.slice:
                     element.visit(self)
                 return False
             return True
 
         def visit_Attribute(self, node: cst.Attribute) -> bool:
-            nonlocal fields
             if isinstance(node.value, cst.Name) and node.value.value == param:
-                if node.attr.value in ("name", "get", "items", "iteritems", "to_dict", "keys"):
-                    fields = None
-                elif fields is not None:
-                    fields.add(node.attr.value)
+                nonlocal ok
+                ok = ok and node.attr.value not in ("name", "get", "items", "iteritems",
+                                                    "to_dict", "keys")
                 return False
             return True
 
         def visit_Name(self, node: cst.Name) -> None:
-            nonlocal fields
+            nonlocal ok
             if node.value == param:
-                fields = None
+                ok = False
 
     body.visit(Uses())
-    return fields
+    return ok
 
 
 def _side_by_side(call: PandasCall) -> bool:
