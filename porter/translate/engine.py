@@ -100,24 +100,25 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     # Which parameters of the script's own functions take frames is learnt from the calls:
     # run the pass until that stops changing (each round can learn one more link of a chain
     # of helpers).
+    # Each pass starts afresh what it learns from the walk: the label reads and what each plan
+    # feeds are the last pass's (an earlier pass may have handed frames over that the
+    # functions learnt since keep in Polars).
     for _ in range(10):
         services.call_sites = {}
-        services.labels_needed = set()  # learnt below, once the functions are known
+        services.labels_needed = set()
+        services.consumers, services.frame_parents = {}, {}
         walker = _Walker(services, facts, emit_code=False)
         walker.block(module.body, _initial_env(facts), module.default_indent, "")
         updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values)
         if updated == services.functions:
             break
         services.functions = updated
-    # Then which frames pandas must make for their row labels, with the functions known (a
-    # column given to a function not learnt yet looked handed over): a label read found in one
-    # pass can make an earlier statement pandas' in the next, back along a chain of filters.
-    services.labels_needed = set()
-    for _ in range(10):
+    # Then, with the functions known, the frames pandas must make for their row labels: a
+    # label read found in one pass can make an earlier statement pandas' in the next, back
+    # along a chain of filters, until no new one is found.
+    for _ in range(10 if services.labels_needed else 0):
         labels_before = set(services.labels_needed)
         services.call_sites = {}
-        # what each plan feeds is the last pass's: an earlier pass may have handed frames over
-        # that the functions learnt since keep in Polars
         services.consumers, services.frame_parents = {}, {}
         walker = _Walker(services, facts, emit_code=False)
         walker.block(module.body, _initial_env(facts), module.default_indent, "")
