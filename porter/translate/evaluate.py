@@ -364,6 +364,54 @@ class Evaluator:
             return False
         return len(params) == 1 and _only_by_column(body, params[0].name.value)
 
+    def pandas_throughout(self, value: Value | None, node: cst.CSTNode) -> Code | None:
+        """The pandas code of `node` as written, with each frame it names handed over, when
+        `value` (what the call works on) is a frame or Series no statement names whose labels
+        a filter or sort made the original row numbers (`df[df.kg > 2].index`,
+        `s.sort_values()[0]`): handing `value` over would number its rows 0..n-1 again. None
+        when that does not apply or a name it reads is not a frame with labels 0..n-1."""
+        frame = value if isinstance(value, Frame) else value.frame if isinstance(value, Column) else None
+        if frame is None or frame.labels_intact or frame.index or \
+                (isinstance(value, Frame) and value.code.text.isidentifier()) or \
+                (isinstance(value, Column) and value.binding is not None):
+            return None  # a frame in a name is made by pandas where it is named (engine.bind)
+        env = self.env
+        ok = True
+
+        class Names(cst.CSTTransformer):
+            def visit_Attribute(self, node: cst.Attribute) -> bool:
+                node.value.visit(self)  # the attribute's own name is not a variable
+                return False
+
+            def leave_Attribute(self, original: cst.Attribute, updated: cst.Attribute) -> cst.BaseExpression:
+                return original.with_changes(value=original.value.visit(self))
+
+            def visit_Arg(self, node: cst.Arg) -> bool:
+                return True
+
+            def visit_Lambda(self, node: cst.Lambda) -> bool:
+                return False  # its parameters may hide the script's names
+
+            def leave_Name(self, original: cst.Name, updated: cst.Name) -> cst.BaseExpression:
+                nonlocal ok
+                named = env.get(original.value)
+                if isinstance(named, (Frame, Column)):
+                    owner = named if isinstance(named, Frame) else named.frame
+                    if not owner.labels_intact or owner.index:
+                        ok = False
+                        return updated
+                    return cst.parse_expression(handover.to_pandas(named).wrapped(emit.ATOM))
+                if isinstance(named, (Grouped, Accessor, Indexer, Parts)):
+                    ok = False
+                return updated
+
+        if not isinstance(node, cst.BaseExpression):
+            return None
+        rewritten = node.visit(Names())
+        if not ok or rewritten.deep_equals(node):
+            return None
+        return Code(self.source(rewritten), precedence(node))
+
     def note_handed_over(self, value: Value | None) -> None:
         """A frame or Series (or the frame of a groupby) given to pandas code porter does not
         rewrite: that code may read its row labels (a loop's labels, row.name, a group's rows,
@@ -768,10 +816,19 @@ class Evaluator:
         self.note_alignment(key, call)
         labels_unread = (key in _LABELS_NOT_READ or key.startswith(_ELEMENT_PREFIXES)) \
             and not {"left_index", "right_index"} & set(call.kwargs)
+        sites = _child_sites(call, None) + (site,)
         if key not in _ELEMENT_CALLS and not labels_unread \
                 and not (key == "frame.apply" and self.rows_without_labels(call)):
             self.note_handed_over(call.receiver)
-        sites = _child_sites(call, None) + (site,)
+            whole = self.pandas_throughout(call.receiver, node)
+            if whole is not None:
+                # a frame no statement names, filtered or sorted on the way: its labels are
+                # pandas' only if pandas runs the whole expression from the frames it reads
+                fallback = whole
+                sites = tuple(replace(x, status="handover", confidence=1.0,
+                                      message="made by pandas with the expression it is in, "
+                                              "for its row labels")
+                              if x.status == "converted" else x for x in sites[:-1]) + (site,)
         if (call.receiver is None and entry is not None and entry.extra.get("returns") == "frame"
                 and not self.services.inside_from_pandas(node)
                 and not {"chunksize", "iterator"} & set(call.kwargs)):  # those give chunks
