@@ -169,3 +169,13 @@ def test_value_by_value_and_group_calls_after_a_filter_leave_the_filter_on_polar
 ])
 def test_labels_of_a_temporary_are_pandas_own(expression: str) -> None:
     differential(HEAD + f"result = {expression}\n")
+
+
+def test_a_keyword_named_like_a_frame_stays_a_keyword() -> None:
+    # pandas runs the whole expression with the frames it names handed over; `ascending=` is a
+    # parameter's name, not the frame of that name
+    result = differential(HEAD + """\
+ascending = pd.DataFrame({"boat": ["Orm", "Lunde"], "crew": [3, 4]})
+result = df[df["cars"] > 2].sort_index(ascending=False).index.tolist()
+""")
+    assert "sort_index(ascending=False)" in result.converted_text, result.converted_text

@@ -380,14 +380,13 @@ class Evaluator:
 
         class Names(cst.CSTTransformer):
             def visit_Attribute(self, node: cst.Attribute) -> bool:
-                node.value.visit(self)  # the attribute's own name is not a variable
-                return False
+                return False  # the attribute's own name is not a variable: only its value is
 
             def leave_Attribute(self, original: cst.Attribute, updated: cst.Attribute) -> cst.BaseExpression:
                 return original.with_changes(value=original.value.visit(self))
 
-            def visit_Arg(self, node: cst.Arg) -> bool:
-                return True
+            def leave_Arg(self, original: cst.Arg, updated: cst.Arg) -> cst.Arg:
+                return updated.with_changes(keyword=original.keyword)  # `right=`: not a variable
 
             def visit_Lambda(self, node: cst.Lambda) -> bool:
                 return False  # its parameters may hide the script's names
