@@ -96,6 +96,16 @@ def assert_same_table(expected: Any, actual: Any) -> None:
         assert all(same_cells(x, y) for x, y in zip(e, a)), f"row {i} differs: pandas {e}, polars {a}"
 
 
+def column_kinds(frame: Any) -> list[str]:
+    """'f', 'i' or 'o' per column of a pandas or Polars frame: what to_csv and print write for
+    a whole number (6 or 6.0) follows it."""
+    if isinstance(frame, pl.LazyFrame):
+        frame = frame.collect()
+    if isinstance(frame, pl.DataFrame):
+        return ["f" if d.is_float() else "i" if d.is_integer() else "o" for d in frame.dtypes]
+    return [d.kind if d.kind in "fi" else "o" for d in frame.dtypes]
+
+
 def assert_same_value(expected: Any, actual: Any) -> None:
     if isinstance(expected, (pd.DataFrame, pd.Series)):
         assert_same_table(expected, actual)

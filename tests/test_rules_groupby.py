@@ -11,7 +11,7 @@ import pandas as pd
 import pytest
 
 from rule_checks import check_ports, check_todo, check_unchanged
-from support import assert_same_table, convert, differential, run
+from support import assert_same_table, column_kinds, convert, differential, run
 
 # None and NaN keys, NaN values, a group whose values are all missing (c), ties in counts,
 # unicode keys and text.
@@ -342,16 +342,6 @@ def test_pivot_table_matches_pandas(call: str) -> None:
     assert not result.todos, result.converted_text
 
 
-def _kinds(frame) -> list[str]:
-    """'f' or 'i' per column of a pandas frame or a Polars frame: what to_csv writes differs."""
-    import polars as pl
-    if isinstance(frame, pl.LazyFrame):
-        frame = frame.collect()
-    if isinstance(frame, pl.DataFrame):
-        return ["f" if d.is_float() else "i" if d.is_integer() else "o" for d in frame.dtypes]
-    return [d.kind if d.kind in "fi" else "o" for d in frame.dtypes]
-
-
 @pytest.mark.parametrize("call", [
     # a combination of shop and month no row has: pandas makes every cell float
     'df.pivot_table(index="shop", columns="month", values="n", aggfunc="sum")',
@@ -370,7 +360,7 @@ def test_pivot_table_without_fill_value_has_pandas_types(call: str) -> None:
     source = PIVOT + f"result = {call}.reset_index()\n"
     result = differential(source)
     assert not result.todos, result.converted_text
-    assert _kinds(run(source)["result"]) == _kinds(run(result.converted_text)["result"]), \
+    assert column_kinds(run(source)["result"]) == column_kinds(run(result.converted_text)["result"]), \
         result.converted_text
 
 

@@ -10,7 +10,7 @@ from __future__ import annotations
 import pytest
 
 from rule_checks import check_ports, check_todo
-from support import convert, differential
+from support import column_kinds, convert, differential
 
 # A missing key of each kind (None and NaN), unicode keys, a column key ("r") seen with one
 # index key only, a row ("é") whose other key is missing, NaN values, ties.
@@ -161,16 +161,6 @@ def test_unstack_ports_to_a_pivot_of_the_groups() -> None:
     assert '.pipe(pandas_unstacked, "shop")' in text and "def pandas_unstacked(" in text
 
 
-def _kinds(frame) -> list[str]:
-    """'f', 'i' or 'o' per column: what to_csv and print write (6 or 6.0) follows it."""
-    import polars as pl
-    if isinstance(frame, pl.LazyFrame):
-        frame = frame.collect()
-    if isinstance(frame, pl.DataFrame):
-        return ["f" if d.is_float() else "i" if d.is_integer() else "o" for d in frame.dtypes]
-    return [d.kind if d.kind in "fi" else "o" for d in frame.dtypes]
-
-
 @pytest.mark.parametrize("call", [
     # a combination no row has (shop c, kind q): every cell float, as pandas makes it
     'df.groupby(["shop", "kind"])["n"].sum().unstack()',
@@ -193,7 +183,7 @@ def test_unstack_matches_pandas(call: str) -> None:
     result = differential(source)
     assert not result.todos, result.converted_text
     from support import run
-    assert _kinds(run(source)["result"]) == _kinds(run(result.converted_text)["result"]), \
+    assert column_kinds(run(source)["result"]) == column_kinds(run(result.converted_text)["result"]), \
         result.converted_text
 
 
