@@ -559,6 +559,22 @@ def series_any_all(call: PandasCall, ctx: RuleContext) -> Value:
     return scalar_of(column, code.method(call.name), pytype="bool")
 
 
+def pivot_sorted(code: Code, on: str, keys: list[str], values: str, fill: Any,
+                 float_when_missing: bool) -> Code:
+    """The groups (one row per combination) collected and pivoted as pandas lays the table
+    out: the new columns in the order of their values (the pivot meets them sorted), the rows
+    in the order of the keys; `fill` for a combination no row has, or else, for integer cells
+    (`float_when_missing`), every cell float when one is missing (pandas_unstacked)."""
+    index: str | list[str] = keys[0] if len(keys) == 1 else keys
+    code = code.method("sort", on).method("collect").method(
+        "pivot", on=on, index=index, values=values).method("sort", index)
+    if fill is not None:
+        return code.method("fill_null", fill)
+    if float_when_missing:
+        return code.method("pipe", emit.atom(UNSTACKED_FUNCTION), index)
+    return code
+
+
 @rule("frame.pivot_table")
 def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     """df.pivot_table(index, columns, values, aggfunc, fill_value) -> group_by the keys, then
@@ -616,15 +632,8 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
         "agg", agg_expr(emit.col(values), how, value_dtype))
     if how in ("mean", "median", "min", "max"):
         code = code.method("drop_nulls", values)  # pandas drops a group whose value is missing
-    # the new columns appear in the order the pivot meets their values: sorted first
-    code = code.method("sort", columns).method("collect").method(
-        "pivot", on=columns, index=keys[0] if len(keys) == 1 else keys, values=values)
-    index = keys[0] if len(keys) == 1 else keys
-    code = code.method("sort", index)
-    if fill is not None:
-        code = code.method("fill_null", fill)
-    elif float_when_missing and value_dtype != "float":
-        code = code.method("pipe", emit.atom(UNSTACKED_FUNCTION), index)
+    code = pivot_sorted(code, columns, keys, values, fill,
+                        float_when_missing and value_dtype != "float")
     ctx.lower("the new columns are named by their values as text (pandas keeps the values)", 0.95)
     # pandas code given the table finds the columns by the key's values (pv[2024])
     int_labels = tuple(keys) if frame.dtype(columns) == "int" else None

@@ -14,9 +14,9 @@ import numpy as np
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.rules.groupby import agg_expr, how_name
+from porter.rules.groupby import agg_expr, how_name, pivot_sorted
 from porter.rules.io import polars_dtype
-from porter.rules.io_options import DIVIDE_FUNCTION, QUANTILE_FUNCTION, UNSTACKED_FUNCTION
+from porter.rules.io_options import DIVIDE_FUNCTION, QUANTILE_FUNCTION
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, check_same_rows, column_names, derived_column,
 )
@@ -286,18 +286,11 @@ def unstack(call: PandasCall, ctx: RuleContext) -> Value:
     values = plain or (column.name if column.name is not None else "values")
     while values in keys:
         values = f"_{values}"
-    index = rest[0] if len(rest) == 1 else rest
     code = frame.code
     if frame.columns != (*keys, values) or plain != values:
         code = code.method("select", *(emit.col(k) for k in keys),
                            column.code if plain == values else column.code.method("alias", values))
-    # the new columns appear in the order the pivot meets their values: sorted first
-    code = code.method("sort", on).method("collect").method(
-        "pivot", on=on, index=index, values=values).method("sort", index)
-    if fill is not None:
-        code = code.method("fill_null", fill)
-    elif column.dtype == "int":
-        code = code.method("pipe", emit.atom(UNSTACKED_FUNCTION), index)
+    code = pivot_sorted(code, on, rest, values, fill, column.dtype == "int")
     dtypes = tuple((k, frame.dtype(k)) for k in rest if frame.dtype(k) is not None)
     # pandas code given the table finds the columns by the key's values (t[2024])
     int_labels = tuple(rest) if frame.dtype(on) == "int" else None
