@@ -753,3 +753,30 @@ def test_a_group_call_left_on_pandas_gets_only_the_columns_it_reads():
         result = df.groupby("kind")["tons2"].agg(spread).reset_index()
     """, "result")
     assert 'df.select("kind", "tons2").collect().to_pandas().groupby("kind")' in text, text
+
+
+def test_a_statement_kept_on_pandas_after_a_hand_over_is_marked():
+    # `df` went to pandas for the insert; the statement after it keeps pandas for a call of
+    # its own (a row lookup by label), which gets its own marker, not a silent pass
+    text = both("""
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        df.insert(1, "port", "Sandvik")
+        first = df.set_index("berth").loc["A"]
+        """, "first")
+    assert "TODO(porter): indexed.loc" in text
+
+
+def test_series_of_a_frame_sorted_after_their_last_use_stay_expressions():
+    # three parses of one text column, combined and put back, then the frame is sorted: the
+    # Series are not read after the sort, so they stay expressions of the frame
+    text = both("""
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        df = df.drop_duplicates()
+        as_float = pd.to_numeric(df["tons"], errors="coerce")
+        as_crates = pd.to_numeric(df["crates"], errors="coerce")
+        df["load"] = as_float.fillna(as_crates).fillna(0)
+        df = df.sort_values(["load", "berth"])
+        """, "df")
+    assert "TODO" not in text

@@ -360,3 +360,25 @@ def test_to_numeric_of_unreadable_text_fails_as_pandas_does() -> None:
     converted = convert(source).converted_text
     with pytest.raises(Exception):
         run(converted)
+
+
+PIVOTED = '''
+import pandas as pd
+df = pd.DataFrame({"m": ["a", "b", "a", "c"], "s": ["x", "y", "y", "x"], "v": [1.0, 2.0, 3.0, None]})
+load = df.pivot_table(index="m", columns="s", values="v", aggfunc="sum", fill_value=0)
+'''
+
+
+def test_columns_name_none_writes_nothing() -> None:
+    # pandas keeps the pivot's key as the columns' name, which melt would use as the variable
+    # column; set to None, melt names it "variable" in both
+    result = differential(PIVOTED + 'load.columns.name = None\nload = load.reset_index()\n'
+                          'long = load.melt(id_vars="m")\n', "load", "long")
+    assert "TODO" not in result.converted_text
+    assert "columns.name" not in result.converted_text
+    assert "load = load\n" not in result.converted_text
+
+
+def test_columns_name_given_is_a_todo() -> None:
+    check_todo(PIVOTED + 'load.columns.name = "series"\nload = load.reset_index()\n',
+               "frame.columns.name")

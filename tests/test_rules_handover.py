@@ -241,3 +241,26 @@ def test_a_builtin_without_a_rule_is_given_the_series_as_pandas_has_it(use):
         df["w"] = df["v"] * 2
         result = {use}
     """))
+
+
+TEXT_FRAME = '''
+import pandas as pd
+df = pd.DataFrame({"k": ["b", "a", "ø", None], "v": [1, None, 3, 4], "w": [0.5, 1.25, None, 2.0]})
+'''
+
+
+@pytest.mark.parametrize("source", [
+    pytest.param('shown = df.sort_values("k").to_string(index=False)', id="sorted, no labels"),
+    pytest.param('shown = df.to_string()', id="labels 0..n-1"),
+    pytest.param('shown = df.groupby("k")["v"].sum().to_string()', id="a groupby's keys"),
+    pytest.param('shown = df["w"].to_string()', id="a Series"),
+])
+def test_to_string_lays_out_what_pandas_lays_out(source: str) -> None:
+    result = differential(TEXT_FRAME + source + "\n", "shown")
+    assert "TODO" not in result.converted_text
+    assert [s.status for s in result.sites if s.key.endswith("to_string")] == ["handover"]
+
+
+def test_to_string_with_labels_a_sort_changed_is_pandas_own() -> None:
+    result = differential(TEXT_FRAME + 'shown = df.sort_values("k").to_string()\n', "shown")
+    assert "TODO(porter)" in result.converted_text

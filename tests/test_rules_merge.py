@@ -9,10 +9,12 @@ from __future__ import annotations
 import ast
 import textwrap
 
+import pandas as pd
+import polars as pl
 import pytest
 
 from rule_checks import check_todo, check_unchanged
-from support import convert, converted_text, differential
+from support import convert, converted_text, differential, run
 
 # Tricky on purpose: a missing key on each side (None on the left, NaN on the right; pandas
 # matches them with each other), a duplicated key on each side (many-to-many), unicode keys,
@@ -228,8 +230,8 @@ def test_unknown_columns_match_pandas(merge: str, tmp_path, monkeypatch) -> None
 TODOS = [
     pytest.param('result = left.merge(right, on="k", indicator=True)', "frame.merge",
                  "indicator=True", id="indicator"),
-    pytest.param('result = left.merge(right, on="k", validate="m:m")', "frame.merge",
-                 "validate=", id="validate"),
+    pytest.param('result = left.merge(other, on="k", how="right", validate="m:1")',
+                 "frame.merge", "validate= on a right join", id="validate on a right join"),
     pytest.param('result = left.merge(right, left_index=True, right_index=True)', "frame.merge",
                  "row labels", id="left_index/right_index"),
     pytest.param('result = left.merge(right, on="k", how="left_anti")', "frame.merge",
@@ -308,10 +310,41 @@ def test_todos_where_pandas_raises(source: str, key: str, reason: str) -> None:
 
 def test_todo_merge_comes_back_as_a_lazy_frame() -> None:
     # pd.merge always returns a frame: the pandas fallback is handed back to Polars
-    text = converted_text(FRAMES + 'result = pd.merge(left, right, on="k", validate="m:m")\n')
+    merge = 'result = pd.merge(left, other, on="k", how="right", validate="m:1")\n'
+    text = converted_text(FRAMES + merge)
     flat = "".join(text.split())
     assert "pl.from_pandas(pd.merge(" in flat and ").lazy()" in flat
-    differential(FRAMES + 'result = pd.merge(left, right, on="k", validate="m:m")\n')
+    differential(FRAMES + merge)
+
+
+# validate=: the same keys pass and fail the check as in pandas; missing keys count as equal
+# keys (pandas counts NaN twice as a repeated key), so `right`'s None and NaN are one key.
+VALIDATED = [
+    pytest.param('left.merge(other, on="k", how="left", validate="m:1")', True, id="m:1 passes"),
+    pytest.param('other.merge(left, on="k", validate="one_to_many")', True, id="1:m passes"),
+    pytest.param('left.merge(right, on="k", validate="m:m")', True, id="m:m checks nothing"),
+    pytest.param('other.merge(other, on="k", how="outer", validate="1:1")', True,
+                 id="1:1 outer passes"),
+    pytest.param('left.merge(other, on="k", validate="1:1")', False, id="1:1 fails on the left"),
+    pytest.param('other.merge(right, on="k", how="left", validate="many_to_one")', False,
+                 id="m:1 fails on the right"),
+    pytest.param('other.merge(pd.DataFrame({"k": ["a", None, None]}), on="k", validate="m:1")', False,
+                 id="two missing keys repeat a key"),
+]
+
+
+@pytest.mark.parametrize(("merge", "passes"), VALIDATED)
+def test_validate_checks_the_keys_pandas_checks(merge: str, passes: bool) -> None:
+    source = FRAMES + f"result = {merge}\n"
+    found, result = site(f"result = {merge}\n", "frame.merge")
+    assert found.status == "converted", found.message
+    if passes:
+        differential(source)
+        return
+    with pytest.raises(pd.errors.MergeError, match="not unique"):
+        run(source)
+    with pytest.raises(pl.exceptions.ComputeError, match="validation"):
+        run(result.converted_text)["result"].collect()
 
 
 UNCHANGED = [

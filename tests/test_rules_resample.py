@@ -267,6 +267,56 @@ def test_agg(expr: str) -> None:
     same_types(source)
 
 
+# -- set_index and groupby().resample ------------------------------------------------------------
+
+# pandas resamples each group on its own: every bin from the group's first timestamp to its
+# last (station "y" spans other weeks than "x"), the groups in key order, the missing station
+# and the missing timestamp left out
+GROUP_RESAMPLES = [
+    'df.set_index("ts").groupby("st").resample("{freq}")[["v", "f"]].{how}()',
+    'df.set_index("ts").groupby("st")["f"].resample("{freq}").{how}()',
+    'df.groupby("st").resample("{freq}", on="ts")[["v", "f"]].{how}()',
+    'df.groupby(["st", "k"]).resample("{freq}", on="ts")["v"].{how}()',
+]
+
+
+@pytest.mark.parametrize("expr", GROUP_RESAMPLES)
+@pytest.mark.parametrize("freq", ["D", "W-SUN", "MS", "ME", "6h"])
+@pytest.mark.parametrize("how", ["sum", "mean", "count", "first", "max"])
+def test_groupby_resample_fills_each_group(expr: str, freq: str, how: str) -> None:
+    source = FRAME + f"result = {expr.format(freq=freq, how=how)}\n"
+    result = differential(source)
+    assert "TODO(porter)" not in result.converted_text
+    same_types(source, allow={"v"} if how in ("first", "max") else set())
+
+
+def test_groupby_resample_of_every_column_and_agg() -> None:
+    source = FRAME + (
+        'result = df.drop(columns=["k"]).set_index("ts").groupby("st").resample("D").sum()\n'
+        'other = df.groupby("st").resample("W", on="ts").agg({"v": "max", "f": "sum"})\n'
+        'sizes = df.set_index("ts").groupby("st").resample("ME").size()\n')
+    result = differential(source, "result", "other", "sizes")
+    assert "TODO(porter)" not in result.converted_text
+
+
+def test_set_index_then_resample_and_reset_index() -> None:
+    source = FRAME + (
+        'result = df.set_index("ts").resample("W")["v"].sum().reset_index()\n'
+        'back = df.set_index("ts").reset_index()\n'
+        'dropped = df.set_index("ts").reset_index(drop=True)\n'
+        'by_time = df.set_index("ts")\n'
+        'other = by_time.groupby("st")["f"].resample("D").mean().reset_index()\n')
+    result = differential(source, "result", "back", "dropped", "other")
+    assert "TODO(porter)" not in result.converted_text
+
+
+def test_an_indexed_frame_read_by_label_stays_pandas_with_its_labels() -> None:
+    source = FRAME + ('by_time = df.set_index("ts")\n'
+                      'result = by_time.loc[by_time.index >= "2024-02-29"]\n')
+    result = differential(source)
+    assert "TODO(porter): indexed.loc" in result.converted_text
+
+
 # -- the result as pandas' index ---------------------------------------------------------------
 
 def test_reset_index_and_csv(tmp_path) -> None:
@@ -310,7 +360,19 @@ TODOS = [
     pytest.param('df.resample("BME", on="ts")["v"].sum()', "frame.resample", id="business days"),
     pytest.param('df.resample("2W", on="ts")["v"].sum()', "frame.resample", id="two weeks"),
     pytest.param('df.resample("d", on="ts")["v"].sum()', "frame.resample", id="lower case"),
-    pytest.param('df.set_index("ts").resample("D")["v"].sum()', "frame.set_index", id="the index"),
+    pytest.param('df.set_index(["st", "ts"]).reset_index()', "frame.set_index",
+                 id="two labels' columns"),
+    pytest.param('df.set_index("ts", drop=False).resample("D")["v"].sum()', "frame.set_index",
+                 id="set_index drop=False"),
+    pytest.param('df.set_index("ts").loc["2024-02-27"]', "indexed.loc", id="a label read"),
+    pytest.param('df.set_index("ts").groupby("st").resample("2D")["v"].sum()',
+                 "indexed.groupby.resample", id="days counted from each group's first"),
+    pytest.param('df.set_index("ts").groupby("st").sum()', "indexed.groupby.sum",
+                 id="groupby on the indexed frame without resample"),
+    pytest.param('df.groupby("st").resample("D", on="ts", closed="right")["v"].sum()',
+                 "groupby.resample", id="groupby resample closed right"),
+    pytest.param('df.groupby("st", sort=False).resample("D", on="ts")["v"].sum()',
+                 "groupby.resample", id="groupby sort=False before resample"),
     pytest.param('df.resample("D", on="ts")["v"].sum(min_count=1)', "resample.sum", id="min_count"),
     pytest.param('df.resample("D", on="ts")["v"].ohlc()', "resample.ohlc", id="ohlc"),
     pytest.param('df.groupby(["st", pd.Grouper(key="ts", freq="D")], sort=False)["v"].sum()',

@@ -596,6 +596,22 @@ def set_columns(call: PandasCall, ctx: RuleContext) -> Value:
                   dtypes=(), column_pairs=(), int_labels_except=None)
 
 
+@rule("frame.columns.name")
+def set_columns_name(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.columns.name = None -> nothing: a Polars frame's columns carry no name.
+
+    A name given (not None) shows in pandas' printing and becomes melt's variable column:
+    a TODO."""
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    value = call.args[0]
+    if not (isinstance(value, Opaque) and value.is_const and value.const is None):
+        raise Unsupported("a name for the columns: pandas prints it and melt names the variable "
+                          "column after it; Polars columns have no name (pass var_name= to "
+                          "unpivot)")
+    return frame
+
+
 _ARRAYS = ("series.values", "series.to_numpy", "frame.values", "frame.to_numpy")
 
 

@@ -57,21 +57,37 @@ def handover(call: PandasCall, ctx: RuleContext) -> Value:
     return Opaque(_same_call(call, ctx))
 
 
+@rule("frame.to_string", "series.to_string", "frame.to_markdown", "series.to_markdown")
+def to_text(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.to_string(...) / to_markdown(...) -> df.collect().to_pandas().to_string(...).
+
+    Handles: the text pandas lays out, from the collected frame with pandas' types (an int
+    column with a missing value is float, as pandas holds it); the index porter tracks
+    (after a groupby) is restored and printed; index=False prints no labels.
+    Caveats: with the row labels printed (the default), labels that are no longer 0..n-1
+    (after a filter or a sort) are a TODO.
+    """
+    if call.const("index", None, True):
+        _check_labels(call, ctx, None, "print")
+    return Opaque(_same_call(call, ctx))
+
+
 def _receiver(call: PandasCall) -> Frame | Column:
     receiver = call.receiver
     assert isinstance(receiver, (Frame, Column))
     return receiver
 
 
-def _check_labels(call: PandasCall, ctx: RuleContext, plot_reason: str | None) -> None:
+def _check_labels(call: PandasCall, ctx: RuleContext, plot_reason: str | None,
+                  verb: str = "write") -> None:
     """pandas uses the row labels here; the collected frame has fresh ones (0..n-1)."""
     receiver = _receiver(call)
     frame = receiver.frame if isinstance(receiver, Column) else receiver
     if frame.index or frame.labels_intact:
         return
     if plot_reason is None:
-        raise ctx.todo("index=True writes pandas' row labels, which are no longer 0..n-1 here: "
-                       "pass index=False, or keep the labels as a column (with_row_index)")
+        raise ctx.todo(f"index=True {verb}s pandas' row labels, which are no longer 0..n-1 "
+                       "here: pass index=False, or keep the labels as a column (with_row_index)")
     ctx.lower(f"{plot_reason}, and they are no longer 0..n-1 here", 0.8)
 
 

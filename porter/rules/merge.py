@@ -1,6 +1,6 @@
 """Combining frames: merge -> LazyFrame.join, pd.concat -> pl.concat.
 
-Caveats: indicator=, validate=, left_index/right_index, the anti joins and axis=1 concatenation
+Caveats: indicator=, validate= on right joins, left_index/right_index, the anti joins and axis=1 concatenation
 are TODOs. Missing keys match each other only as nulls: porter keeps frames NaN-free (NaN is
 written as a missing value), and a NaN produced by arithmetic would match only NaN in Polars.
 """
@@ -37,7 +37,8 @@ def frame_merge(call: PandasCall, ctx: RuleContext) -> Value:
     applied to both sides when the columns are known; pandas' column order after a right
     join; sort=True; an int key joined to a float key (cast when the types are known); keys
     that are the index of a grouped frame.
-    Caveats: indicator=, validate=, left_index/right_index and the anti joins are TODOs.
+    validate= (not on a right or cross join; a failed check raises ComputeError).
+    Caveats: indicator=, left_index/right_index and the anti joins are TODOs.
     With the columns unknown, the columns both frames have are found from their schemas when
     the script runs.
     """
@@ -49,6 +50,27 @@ def pd_merge(call: PandasCall, ctx: RuleContext) -> Value:
     """pd.merge(left, right, ...) -> left.join(right, ...); as frame.merge."""
     args = _named(call, ("left", *MERGE_PARAMS))
     return _merge(args.arg("left"), args, ctx)
+
+
+VALIDATE = {"one_to_one": "1:1", "1:1": "1:1", "one_to_many": "1:m", "1:m": "1:m",
+            "many_to_one": "m:1", "m:1": "m:1", "many_to_many": None, "m:m": None}
+
+
+def _validate(args: PandasCall, ctx: RuleContext) -> str | None:
+    """Polars' validate= for pandas' one: the same check of which side's keys are unique.
+
+    Missing keys count as equal keys on both sides (nulls_equal=True), as pandas counts
+    them; a failed check raises ComputeError instead of pandas' MergeError.
+    """
+    value = args.const("validate", None, None, kinds=(str,))
+    if value is None:
+        return None
+    if value not in VALIDATE:
+        raise ctx.todo(f"validate={value!r} is not one of pandas' checks")
+    if VALIDATE[value] is not None:
+        ctx.lower("validate=: keys that fail the check raise polars' ComputeError, not "
+                  "pandas' MergeError (code that catches MergeError does not see it)", 0.95)
+    return VALIDATE[value]
 
 
 def _named(call: PandasCall, names: Sequence[str]) -> PandasCall:
@@ -82,10 +104,7 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(left, Frame) and isinstance(right, Frame)
     if args.const("indicator", None, False):
         raise ctx.todo(INDICATOR_ADVICE)
-    if args.const("validate", None, None) is not None:
-        raise ctx.todo("validate= raises MergeError in pandas but ComputeError in Polars: "
-                       "pass validate= to join (with nulls_equal=True) if the error type does "
-                       "not matter")
+    validate = _validate(args, ctx)
     if args.const("left_index", None, False) or args.const("right_index", None, False):
         raise ctx.todo("left_index/right_index join on row labels: make the labels a column "
                        "(with_row_index where the frame was made) and join on it")
@@ -122,6 +141,11 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
     if how != "cross":
         kwargs["nulls_equal"] = True  # pandas matches missing keys with each other (J01)
     kwargs["maintain_order"] = "right_left" if how == "right" else "left_right"
+    if validate is not None:
+        if how in ("right", "cross"):
+            raise ctx.todo(f"validate= on a {how} join: Polars checks keys only on inner, "
+                           "left and full joins; check the keys' uniqueness before the join")
+        kwargs["validate"] = validate
     if suffix is not None:
         kwargs["suffix"] = suffix
     code = lside.code.method("join", rside.code, **kwargs)

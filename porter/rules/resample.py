@@ -37,9 +37,9 @@ from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.groupby import agg_dtype, agg_expr, how_name
 from porter.translate import handover
-from porter.translate.context import PandasCall, RuleContext, Unsupported, column_names
+from porter.translate.context import PandasCall, RuleContext, Unsupported, column_names, derive
 from porter.translate.values import (
-    Column, Frame, Opaque, Resampled, TimeGrouperSpec, Value, fresh_token,
+    Column, Frame, Grouped, Indexed, Opaque, Resampled, TimeGrouperSpec, Value, fresh_token,
 )
 
 RESAMPLE_AGGREGATIONS = ("sum", "mean", "median", "min", "max", "count", "size", "first", "last",
@@ -78,6 +78,7 @@ class Bins:
     interval: str  # pl.datetime_ranges' interval between two labels (or two periods' starts)
     end_anchored: bool = False  # labels are month ends: the range runs over the months' starts
     caveat: str | None = None  # where the rewrite may differ (lowers the confidence)
+    from_first: bool = False  # bins counted from the first timestamp's midnight (several days)
 
     def labels(self, time: Code) -> Code:
         return self.label(time)
@@ -122,7 +123,7 @@ def bins_of(freq: object) -> Bins:
         if unit == "d":
             caveat = ("with a time zone, pandas counts bins of several days in calendar days "
                       "across a daylight-saving change, porter in hours (the same without one)")
-        return Bins(freq, "left", counted, f"{n}{unit}", caveat=caveat)
+        return Bins(freq, "left", counted, f"{n}{unit}", caveat=caveat, from_first=True)
     week = re.fullmatch(r"W(?:-(MON|TUE|WED|THU|FRI|SAT|SUN))?", freq)
     if week:
         target = _WEEKDAYS[week.group(1) or "SUN"]
@@ -279,6 +280,162 @@ def groupby_grouper(call: PandasCall, ctx: RuleContext) -> Value:
                      as_index=bool(as_index))
 
 
+# -- a frame indexed by its time column ---------------------------------------------------------
+
+@rule("frame.set_index")
+def set_index(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.set_index("ts") -> the frame, "ts" kept as a column, for the calls porter ports
+    with the row labels: resample(rule), groupby(keys).resample(rule), reset_index().
+
+    Handles: one column as the labels (drop=True, the default).
+    Caveats: any other use of the labels (.loc by label, join, alignment, the index written
+    out) is a TODO on the frame pandas makes; several keys, drop=False, append=True and
+    verify_integrity=True are TODOs.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "keys", "drop", "append", "verify_integrity", positional=1)
+    key = call.const("keys", 0, None)
+    if not isinstance(key, str):
+        raise ctx.todo("keep the key as a column; select or filter on it instead of index "
+                       "labels (porter ports one column as the labels, for resample)")
+    for name, default in (("drop", True), ("append", False), ("verify_integrity", False)):
+        if call.const(name, None, default) is not default:
+            raise ctx.todo(f"{name}= other than {default}")
+    if frame.index:
+        raise ctx.todo("the frame keeps an index (after a groupby): call reset_index() first")
+    if frame.columns is not None and key not in frame.columns:
+        raise ctx.todo(f"{key!r} is not a column of the frame (pandas raises KeyError)")
+    return Indexed(handover.to_pandas(frame).method("set_index", key), frame=frame, key=key)
+
+
+def _indexed(call: PandasCall) -> Indexed:
+    assert isinstance(call.receiver, Indexed)
+    return call.receiver
+
+
+@rule("indexed.reset_index")
+def indexed_reset_index(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.set_index("ts").reset_index() -> the column first, as pandas puts the labels back;
+    reset_index(drop=True) -> the frame without it."""
+    indexed = _indexed(call)
+    frame, key = indexed.frame, indexed.key
+    ctx.reject_unknown(call, "drop")
+    if call.const("drop", None, False):
+        columns = tuple(c for c in frame.columns if c != key) if frame.columns is not None else None
+        return derive(frame, frame.code.method("drop", key), same_rows=True, columns=columns,
+                      labels_intact=True)
+    if frame.columns is not None:
+        columns = (key, *(c for c in frame.columns if c != key))
+        code = frame.code if columns == frame.columns else frame.code.method("select", *columns)
+        return derive(frame, code, same_rows=True, columns=columns, labels_intact=True)
+    code = frame.code.method("select", key, emit.pl("exclude", key))
+    return derive(frame, code, same_rows=True, labels_intact=True)
+
+
+@rule("indexed.resample")
+def indexed_resample(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.set_index("ts").resample(rule) -> as df.resample(rule, on="ts")."""
+    indexed = _indexed(call)
+    ctx.reject_unknown(call, "rule", "closed", "label", "origin", positional=1)
+    bins = _bins_checked(call, ctx)
+    return Resampled(indexed.code.method("resample", bins.freq, **_options(call)),
+                     frame=indexed.frame, keys=(indexed.key,), time=indexed.key,
+                     freq=bins.freq, fill=True)
+
+
+@rule("indexed.groupby")
+def indexed_groupby(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.set_index("ts").groupby(keys) -> the groups, waiting for resample(rule)."""
+    indexed = _indexed(call)
+    ctx.reject_unknown(call, "by", positional=1)
+    by = call.const("by", 0, None)
+    keys = [by] if isinstance(by, str) else by
+    if not (isinstance(keys, list) and keys and all(isinstance(k, str) for k in keys)):
+        raise ctx.todo("keys other than column names")
+    if indexed.key in keys or len(set(keys)) != len(keys):
+        raise ctx.todo("the labels' column among the keys")
+    if any(indexed.frame.dtype(k) == "category" for k in keys):
+        raise ctx.todo("category keys: pandas adds the categories no row has")
+    return replace(indexed, code=indexed.code.method("groupby", by), grouped=tuple(keys),
+                   key_prefix="indexed.groupby", sites=())
+
+
+@rule("indexed.groupby.getitem")
+def indexed_groupby_getitem(call: PandasCall, ctx: RuleContext) -> Value:
+    """…groupby(keys)["kg"] / [["kg", "price"]] -> the columns to resample."""
+    indexed = _indexed(call)
+    key = call.args[0]
+    if not (isinstance(key, Opaque) and isinstance(key.const, (str, list))):
+        raise ctx.todo("selecting columns by a computed key")
+    names = column_names(key.const, "the selected columns")
+    if set(names) & {*indexed.grouped, indexed.key}:
+        raise ctx.todo("selecting the labels' column or a group key")
+    return replace(indexed, code=indexed.code.index(key.const), selection=tuple(names),
+                   single=isinstance(key.const, str), sites=())
+
+
+@rule("indexed.groupby.resample")
+def indexed_groupby_resample(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.set_index("ts").groupby(keys).resample(rule) -> time bins within each group.
+
+    Handles: every bin from each group's first timestamp to its last (pandas resamples each
+    group on its own), the groups sorted by their keys, rows with a missing key or
+    timestamp left out, each bin's rows in time order; a column selected before.
+    Caveats: bins of several days (counted from each group's first day) are TODOs.
+    """
+    indexed = _indexed(call)
+    ctx.reject_unknown(call, "rule", "closed", "label", "origin", positional=1)
+    bins = _bins_checked(call, ctx)
+    return _group_bins(indexed.code.method("resample", bins.freq, **_options(call)),
+                       indexed.frame, indexed.grouped, indexed.key, bins, indexed.selection,
+                       indexed.single, ctx)
+
+
+@rule("groupby.resample")
+def groupby_resample(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.groupby(keys).resample(rule, on="ts") -> as set_index("ts").groupby(keys).resample."""
+    grouped = call.receiver
+    assert isinstance(grouped, Grouped)
+    ctx.reject_unknown(call, "rule", "on", "closed", "label", "origin", positional=1)
+    if not call.has("on"):
+        raise ctx.todo("resampling the index: porter ports resample(rule, on=column)")
+    on = call.const("on", None, kinds=(str,))
+    if not (grouped.sort and grouped.dropna and grouped.as_index) or grouped.prepared:
+        raise ctx.todo("groupby options other than the defaults before resample")
+    if on in grouped.keys or (grouped.selection and on in grouped.selection):
+        raise ctx.todo("the time column among the keys or the selected columns")
+    if grouped.frame.index:
+        raise ctx.todo("the frame keeps an index (after a groupby): call reset_index() first")
+    if any(grouped.frame.dtype(k) == "category" for k in grouped.keys):
+        raise ctx.todo("category keys: pandas adds the categories no row has")
+    bins = _bins_checked(call, ctx)
+    pandas = handover.to_pandas(grouped).method("resample", bins.freq, on=on, **_options(call))
+    return _group_bins(pandas, grouped.frame, grouped.keys, on, bins, grouped.selection,
+                       grouped.single, ctx)
+
+
+def _bins_checked(call: PandasCall, ctx: RuleContext) -> Bins:
+    bins = bins_of(call.const("rule", 0))
+    _check_options(call, bins)
+    if bins.caveat:
+        ctx.lower(bins.caveat, 0.95)
+    return bins
+
+
+def _options(call: PandasCall) -> dict[str, Any]:
+    return {k: call.const(k, None) for k in ("closed", "label", "origin") if call.has(k)}
+
+
+def _group_bins(pandas: Code, frame: Frame, keys: tuple[str, ...], time: str, bins: Bins,
+                selection: tuple[str, ...] | None, single: bool, ctx: RuleContext) -> Resampled:
+    if bins.from_first:
+        raise ctx.todo(f"bins of {bins.freq} are counted from each group's first day: porter "
+                       "ports bins that divide a day, weeks, months, quarters and years here")
+    return Resampled(pandas, frame=frame, keys=(*keys, time), time=time, freq=bins.freq,
+                     fill=True, selection=selection, single=single)
+
+
 @rule("resample.getitem")
 def resample_getitem(call: PandasCall, ctx: RuleContext) -> Value:
     """r["kg"] / r[["kg", "price"]] -> the columns to aggregate."""
@@ -356,10 +513,22 @@ def _binned(resampled: Resampled, outputs: list[_Output], ctx: RuleContext,
         # a sum of a column of unknown type may be a sum of True/False: UInt32 in Polars
         code = code.method("with_columns", emit.atom("pl.selectors.unsigned_integer()").method(
             "cast", emit.atom("pl.Int64")))
-    if resampled.fill:
+    others = [k for k in resampled.keys if k != time]
+    if resampled.fill and others:
+        # groupby().resample(): every bin from each group's first to its last, the groups in
+        # the order of their keys
+        keys_text = emit.names_arg(others)
+        code = code.method("pipe", emit.atom(
+            f"lambda binned: binned.group_by({emit.render(keys_text)})"
+            f".agg({bins.every_label(time).text}).explode({emit.lit(time).text})"
+            f".sort({emit.render(emit.names_arg(resampled.keys))}).join(binned, "
+            f"on={emit.render(emit.names_arg(resampled.keys))}, how=\"left\", "
+            "maintain_order=\"left\")"))
+    elif resampled.fill:
         code = code.method("pipe", emit.atom(
             f"lambda binned: binned.select({bins.every_label(time).text}).join("
             f"binned, on={emit.lit(time).text}, how=\"left\", maintain_order=\"left\")"))
+    if resampled.fill:
         fills = []
         for o in outputs:
             if o.how in _ZERO_WHEN_EMPTY:

@@ -26,8 +26,8 @@ from porter.translate.writes import batch_writes, is_sink_text
 from porter.translate.context import PandasCall, grouping_code
 from porter.translate.evaluate import Evaluator, Services, parts_current
 from porter.translate.values import (
-    MISSING, Column, Frame, Grouped, Module, Opaque, PandasValue, Parts, Scalar, Value, fresh_token,
-    is_pandas,
+    MISSING, Column, Frame, Grouped, Indexed, Module, Opaque, PandasValue, Parts, Scalar, Value,
+    fresh_token, is_pandas,
 )
 
 TODO_PREFIX = "# TODO(porter): "
@@ -83,6 +83,8 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
 
     services.code_for = module.code_for_node
     services.name_uses = _name_counts(module)
+    services.name_lines = {name: [positions[n].start.line for n in nodes]
+                           for name, nodes in _name_nodes(module).items()}
     services.changed_in_place = {name: [position(n)[0] for n in nodes]
                                  for name, nodes in changes_in_place(module).items()}
     services.position = position
@@ -523,6 +525,11 @@ class _Walker:
                  for t, s in zip(texts, line.body)]
         new_lines = []
         statements = [stmt for part in parts for stmt in cst.parse_module(part + "\n").body]
+        if not statements:  # nothing left to write (`df = df`, `df.columns.name = None`)
+            if self.has_next:
+                self.carried = [*self.carried, *line.leading_lines, *todo_lines]
+                return []
+            statements = [cst.parse_statement("pass\n")]
         last = len(statements) - 1
         for i, parsed in enumerate(statements):
             assert isinstance(parsed, cst.SimpleStatementLine)
@@ -581,11 +588,14 @@ class _Walker:
                 self.period_names.add(stmt.targets[0].target.value)
             else:
                 self.period_names.discard(stmt.targets[0].target.value)
-        back = self.back_to_polars(stmt, env, indent)
+        back, blocking = self.back_to_polars(stmt, env, indent)
         waiting = {n: v for n, v in env.items() if isinstance(v, PandasValue) and v.frame is not None}
         text, sites = back if back is not None else self.rewrite_small(stmt, env, indent)
         if back is None:
             self.still_on_pandas(stmt, env, waiting)
+            # the calls that keep a handed-over frame on pandas are marked, as they would be
+            # on a Polars frame: the statement is not left on pandas silently
+            sites = [*sites, *(s for s in blocking if s not in sites)]
         if text is not None and _same_code(text, self.services.code_for(stmt)):
             return None, sites  # only the layout would change: the statement stays as written
         return text, sites
@@ -605,30 +615,33 @@ class _Walker:
             env[name] = PandasValue(emit.atom(name), frame=_after_change(
                 name, before.frame, stmt, what, self.dtype_names, self.period_names))
 
-    def back_to_polars(self, stmt: cst.BaseSmallStatement, env: dict[str, Value],
-                       indent: str) -> tuple[str | None, list[SiteDraft]] | None:
+    def back_to_polars(self, stmt: cst.BaseSmallStatement, env: dict[str, Value], indent: str
+                       ) -> tuple[tuple[str | None, list[SiteDraft]] | None, list[SiteDraft]]:
         """A frame that an earlier statement kept on pandas comes back to Polars
         (`pl.from_pandas`) at the first statement porter can rewrite whole with it, so that one
-        TODO does not keep the rest of the script on pandas."""
+        TODO does not keep the rest of the script on pandas. Otherwise (None, the TODOs that
+        keep the statement on pandas)."""
         names = [n for n in _names_read(self.services.code_for(stmt))
                  if isinstance(env.get(n), PandasValue)
                  and env[n].frame is not None]  # type: ignore[union-attr]
         if not names:
-            return None
+            return None, []
         trial = dict(env)
         for name in names:
             trial[name] = env[name].frame  # type: ignore[union-attr, assignment]
         env_before = dict(trial)
         text, sites = self.rewrite_small(stmt, trial, indent)
         if any(s.status == "todo" for s in sites):
-            return None  # the statement needs pandas anyway: the frame stays there
+            # the statement needs pandas anyway: the frame stays there
+            return None, [s for s in sites if s.status == "todo"]
         env.clear()
         env.update(trial)
         # each frame as it comes back, not as the statement leaves it (a column it makes is
         # not there yet)
         lines = [emit.layout_chain(_from_pandas(name, env_before[name]), indent, f"{name} = ")  # type: ignore[arg-type]
                  for name in names]
-        return "\n".join([*lines, text if text is not None else self.services.code_for(stmt).strip()]), sites
+        return ("\n".join([*lines, text if text is not None else self.services.code_for(stmt).strip()]),
+                sites), []
 
     def rewrite_small(self, stmt: cst.BaseSmallStatement, env: dict[str, Value], indent: str) -> tuple[str | None, list[SiteDraft]]:
         handed, handed_sites = self.hand_over_changed(stmt, env)
@@ -921,22 +934,31 @@ class _Walker:
 
     def set_attr(self, target: cst.Attribute, value_node: cst.BaseExpression, env: dict[str, Value],
                  evaluator: Evaluator, indent: str) -> tuple[str | None, list[SiteDraft]] | None:
-        if not isinstance(target.value, cst.Name):
+        owner, key = target.value, f"frame.set_{target.attr.value}"
+        if isinstance(owner, cst.Attribute) and owner.attr.value == "columns" \
+                and target.attr.value == "name":
+            owner, key = owner.value, "frame.columns.name"  # df.columns.name = None
+        if not isinstance(owner, cst.Name):
             return None
-        frame = evaluator.eval(target.value)
+        frame = evaluator.eval(owner)
         if not isinstance(frame, Frame):
             return None
         value = evaluator.eval(value_node)
         call = PandasCall(frame, target.attr.value, (value,), node=target)
-        result = evaluator.dispatch(f"frame.set_{target.attr.value}", call, target)
-        return self.bind_changed(target.value.value, frame, result, env, indent)
+        result = evaluator.dispatch(key, call, target)
+        if result is frame:
+            return "", [*result.sites]  # the change has no Polars form: nothing is written
+        return self.bind_changed(owner.value, frame, result, env, indent)
 
     def note_stale_series(self, name: str, frame: Frame, env: dict[str, Value]) -> None:
         """`name` is about to hold other rows: a Series kept as an expression of it would then
         read the new rows. The next pass keeps such a Series as a frame of its own."""
-        for value in env.values():
+        here = self.services.statement_lines[1]
+        for held, value in env.items():
             if isinstance(value, Column) and value.binding is not None \
-                    and value.frame.code.text == name and value.frame.rows != frame.rows:
+                    and value.frame.code.text == name and value.frame.rows != frame.rows \
+                    and (self.loop_depth or self.function is not None
+                         or any(line > here for line in self.services.name_lines.get(held, ()))):
                 self.services.stale_series.add(value.binding)
 
     def made_by_pandas(self, name: str, expr: cst.BaseExpression, env: dict[str, Value],
@@ -1039,6 +1061,8 @@ class _Walker:
             env[name] = replace(value, code=emit.atom(name), sites=(), binding=self.statement_key)
             if self.emit_code and self.computed_once() and not _is_collected(code):
                 code = code.method("collect").method("lazy")
+            if code.text == name:  # `df = df.reset_index()` of a frame with no index
+                return "", list(value.sites)
         elif isinstance(value, Column):
             frame_name = value.frame.code.text
             same_frame = frame_name in env and isinstance(env[frame_name], Frame) \
@@ -1084,6 +1108,15 @@ class _Walker:
                                  f"`{name}` is changed in place, or read after its text's frame "
                                  "changed: pandas computes it", *self.services.statement_lines)
                 return emit.layout_chain(code, indent, f"{name} = "), [*value.sites, site]
+        elif isinstance(value, Indexed) and not value.grouped:
+            # `df = df.set_index("ts")`: the name holds the Polars frame (the column kept);
+            # pandas code porter does not port gets it with its labels set again
+            self.note_stale_series(name, value.frame, env)
+            code = value.frame.code
+            self.note_parents(code, env)
+            kept = replace(value.frame, code=emit.atom(name), sites=(), binding=self.statement_key)
+            env[name] = replace(value, code=handover.to_pandas(kept).method("set_index", value.key),
+                                frame=kept, sites=())
         elif isinstance(value, Grouped):
             code = grouping_code(value)
             env[name] = replace(value, code=emit.atom(name), prepared=True, sites=())
@@ -1157,6 +1190,9 @@ def _rewritten_change(target: cst.BaseExpression, value: Value, stmt: cst.BaseSm
             return True
         return isinstance(owner, cst.Attribute) and owner.attr.value in ("loc", "iloc") \
             and isinstance(owner.value, cst.Name) and not isinstance(stmt, cst.Del)
+    if isinstance(owner, cst.Attribute) and owner.attr.value == "columns" \
+            and isinstance(target, cst.Attribute) and target.attr.value == "name":
+        owner = owner.value  # df.columns.name = None
     return isinstance(owner, cst.Name) and isinstance(stmt, cst.Assign)
 
 
@@ -1233,11 +1269,16 @@ def _row_appends(stmt: cst.For) -> tuple[str, str, list[tuple[str, cst.BaseExpre
 
 def _name_counts(node: cst.CSTNode) -> dict[str, int]:
     """How many times each name is written in `node` (attribute names and keywords aside)."""
-    counts: dict[str, int] = {}
+    return {name: len(nodes) for name, nodes in _name_nodes(node).items()}
+
+
+def _name_nodes(node: cst.CSTNode) -> dict[str, list[cst.Name]]:
+    """Where each name is written in `node` (attribute names and keywords aside)."""
+    found: dict[str, list[cst.Name]] = {}
 
     class Count(cst.CSTVisitor):
         def visit_Name(self, n: cst.Name) -> None:
-            counts[n.value] = counts.get(n.value, 0) + 1
+            found.setdefault(n.value, []).append(n)
 
         def visit_Attribute(self, n: cst.Attribute) -> bool:
             n.value.visit(self)
@@ -1248,7 +1289,7 @@ def _name_counts(node: cst.CSTNode) -> dict[str, int]:
             return False
 
     node.visit(Count())
-    return counts
+    return found
 
 
 _PLAIN_FRAME_METHODS = {"reset_index", "merge", "merge_asof", "merge_ordered"}

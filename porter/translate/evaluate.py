@@ -25,7 +25,7 @@ from porter.translate import handover
 from porter.translate.rewrite import BINARY_OPS, ChildRewriter, precedence
 from porter.translate.context import PandasCall, RuleContext, Unsupported, derived_column
 from porter.translate.values import (
-    MISSING, Accessor, BoundMethod, Column, Frame, Grouped, Indexer, Items, Module, Opaque,
+    MISSING, Accessor, BoundMethod, Column, Frame, Grouped, Indexed, Indexer, Items, Module, Opaque,
     PandasValue, Parts, Resampled, Scalar, TimeGrouperSpec, Value, fresh_token, is_pandas,
 )
 
@@ -99,6 +99,7 @@ class Services:
     changed_in_place: dict[str, list[int]] = field(default_factory=dict)
     # how many times each name is written in the module (a loop's row read after the loop)
     name_uses: dict[str, int] = field(default_factory=dict)
+    name_lines: dict[str, list[int]] = field(default_factory=dict)  # where each name is written
     # the rows of frames read from files: counting them again needs no more than the scan
     file_rows: set[int] = field(default_factory=set)
     # the bindings whose frames each binding's plan reads (`b = a.filter(...)`: a -> b)
@@ -303,6 +304,9 @@ class Evaluator:
                 return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
             return self.dispatch("groupby.getitem", PandasCall(
                 receiver, "getitem", (Opaque(emit.lit(name), const=name),), node=node), node)
+        if isinstance(receiver, Indexed):  # df.set_index("ts"), waiting for resample
+            if name in _INDEXED_METHODS[bool(receiver.grouped)]:
+                return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
         if isinstance(receiver, Resampled):  # df.resample(...) / groupby with a pd.Grouper
             if name in pandas_names.GROUPBY or name in _RESAMPLER_METHODS:
                 return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
@@ -316,7 +320,7 @@ class Evaluator:
                 return self.dispatch(f"series.dt.{name}", PandasCall(receiver, name, node=node), node)
             if name in names:
                 return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
-        if isinstance(receiver, (Column, Frame, Grouped, Accessor, Indexer, Resampled)):
+        if isinstance(receiver, (Column, Frame, Grouped, Accessor, Indexer, Resampled, Indexed)):
             return self.todo(f"{_prefix(receiver)}.{name}", PandasCall(receiver, name, node=node),
                              node, "porter has no rule for this attribute")
         if isinstance(receiver, Scalar) and receiver.pytype == "list[str]":
@@ -645,7 +649,8 @@ class Evaluator:
             if isinstance(key, Column) and key.element:
                 call = PandasCall(key, "lookup", (receiver,), node=node)
                 return self.dispatch("element.lookup", call, node)
-        if not isinstance(receiver, (Frame, Column, Grouped, Indexer, Accessor, Parts, Resampled)):
+        if not isinstance(receiver, (Frame, Column, Grouped, Indexer, Accessor, Parts, Resampled,
+                                     Indexed)):
             return self.generic(node)
         keys: list[Value] = []
         for element in node.slice:
@@ -1107,6 +1112,10 @@ def _groups_by_time(call: PandasCall) -> bool:
     return any(isinstance(k, TimeGrouperSpec) for k in keys)
 
 
+# the methods of a frame indexed by a column (and of a groupby on it) that porter ports
+_INDEXED_METHODS = {False: frozenset({"resample", "groupby", "reset_index"}),
+                    True: frozenset({"resample"})}
+
 # SeriesGroupBy methods that a DataFrameGroupBy does not have (a column of the name wins there)
 _SERIES_GROUPBY_ONLY = frozenset({"dtype", "is_monotonic_decreasing", "is_monotonic_increasing",
                                   "nlargest", "nsmallest", "unique"})
@@ -1158,6 +1167,8 @@ def _module_key(qualname: str) -> str:
 def _getitem_key(receiver: Value, key: Value) -> str:
     if isinstance(receiver, Resampled):
         return "resample.getitem"
+    if isinstance(receiver, Indexed):
+        return f"{receiver.key_prefix}.getitem"
     if isinstance(receiver, Grouped):
         return "groupby.getitem"
     if isinstance(receiver, Parts):

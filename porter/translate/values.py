@@ -252,7 +252,8 @@ class Resampled(Value):
     keys      the group keys in order, the time column among them (the bins' labels)
     time      the time column, grouped by bins of `freq`
     fill      pandas makes every bin between the first and the last (resample, or a groupby
-              on the Grouper alone); beside other keys it makes only the bins rows fall in
+              on the Grouper alone), of each group for groupby().resample(); beside other
+              keys in a groupby it makes only the bins rows fall in
     time_order
               each bin's rows are in time order (first / last read it), as resample and a
               groupby on a Grouper not in a list sort them; in a list they keep the frame's
@@ -270,7 +271,28 @@ class Resampled(Value):
     key_prefix: str = field(default="resample", kw_only=True)
 
 
-PANDAS_KINDS = (Frame, Column, Grouped, Accessor, Indexer, Items, BoundMethod, Parts, Resampled)
+@dataclass(frozen=True)
+class Indexed(Value):
+    """`df.set_index("ts")`: a frame whose row labels are one of its columns, waiting for a
+    call porter ports with them (rules/resample.py: resample, groupby().resample,
+    reset_index). `code` is the pandas object itself (the frame handed over, set_index as
+    written), so code porter does not port gets what pandas made; `frame` is the Polars side,
+    the column still in it.
+
+    key       the column that became the row labels
+    grouped   the keys of a groupby on the indexed frame (only resample follows it)
+    """
+
+    frame: Frame = field(kw_only=True)
+    key: str = field(kw_only=True)
+    grouped: tuple[str, ...] = field(default=(), kw_only=True)
+    selection: tuple[str, ...] | None = field(default=None, kw_only=True)
+    single: bool = field(default=False, kw_only=True)
+    key_prefix: str = field(default="indexed", kw_only=True)
+
+
+PANDAS_KINDS = (Frame, Column, Grouped, Accessor, Indexer, Items, BoundMethod, Parts, Resampled,
+                Indexed)
 
 
 def is_pandas(value: Value) -> bool:

@@ -20,7 +20,6 @@ meals = meals.drop("notes")
 meals = meals.with_columns(portions=pl.col("portions").fill_null(0))
 meals = meals.drop_nulls("dish")
 meals = meals.sort(["class_group", "dish"], nulls_last=True, maintain_order=True)
-meals = meals
 (
     meals
     .with_columns(

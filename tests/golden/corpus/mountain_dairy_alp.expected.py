@@ -133,7 +133,6 @@ per_herder = (
     .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("herder_key")
 )
-per_herder = per_herder
 per_herder = per_herder.with_columns(fat_kg=pl.col("fat_kg").round(3))
 per_herder = per_herder.with_columns(wage=pl.col("wage").round(2))
 per_herder = per_herder.with_columns(litres=pl.col("litres").round(1))
