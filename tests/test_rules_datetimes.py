@@ -90,7 +90,7 @@ TODOS = [
     pytest.param('df["t"].dt.floor("h")', "series.dt.floor", id="floor"),
     pytest.param('df["t"].dt.ceil("h")', "series.dt.ceil", id="ceil"),
     pytest.param('df["t"].dt.tz_localize("UTC")', "series.dt.tz_localize", id="tz_localize"),
-    pytest.param('df["t"].dt.to_period("M")', "series.dt.to_period", id="to_period"),
+    pytest.param('df["t"].dt.to_period("M")', "series.periods", id="to_period kept"),
     # the frame isocalendar() makes, and a subscript of it, stay pandas (.week ports)
     pytest.param('df["t"].dt.isocalendar()', "series.dt.isocalendar", id="isocalendar frame"),
     pytest.param('df["t"].dt.isocalendar()["week"]', "series.dt.isocalendar",
@@ -762,3 +762,40 @@ def test_group_diff_of_dates_is_a_duration() -> None:
     result = differential(DURATIONS + 'df["key"] = df["ra"].str[:4]\n'
                           'result = df.assign(g=df.groupby("key")["a"].diff().dt.total_seconds())\n')
     assert "TODO(porter)" not in result.converted_text, result.converted_text
+
+
+# -- periods -----------------------------------------------------------------------------------
+
+# Late evening of a leap day, the last minute of a year and the first of the next, a Sunday
+# and the Monday after it, a missing timestamp.
+PERIOD_FRAME = '''
+import pandas as pd
+df = pd.DataFrame({"raw": ["2024-02-29 23:30", None, "2023-12-31 23:59", "2024-01-01 00:00",
+                           "2024-03-10 12:00", "2024-03-11 00:00", "2024-07-01 08:15"],
+                   "v": [1, 2, 3, 4, 5, 6, 7]})
+df["ts"] = pd.to_datetime(df["raw"], format="%Y-%m-%d %H:%M")
+'''
+
+
+@pytest.mark.parametrize("freq", ["D", "h", "min", "W", "W-SUN", "M", "Q", "Q-DEC", "Y", "Y-DEC"])
+def test_periods_as_text_and_start_match_pandas(freq: str) -> None:
+    source = PERIOD_FRAME + (
+        f'df["text"] = df["ts"].dt.to_period("{freq}").astype(str)\n'
+        f'df["start"] = df["ts"].dt.to_period("{freq}").dt.to_timestamp()\n'
+        f'df["first"] = df["ts"].dt.to_period("{freq}").dt.start_time\n'
+        'result = df\n')
+    converted = differential(source, "result").converted_text
+    assert "TODO" not in converted
+
+
+@pytest.mark.parametrize("source, key", [
+    pytest.param('per = df["ts"].dt.to_period("M")\nresult = df.groupby(per)["v"].sum()\n',
+                 "series.periods", id="periods kept in a name"),
+    pytest.param('result = df["ts"].dt.to_period("2M").astype(str)\n', "series.dt.to_period",
+                 id="two months"),
+    pytest.param('result = df["ts"].dt.to_period("M").dt.end_time\n', "series.dt.end_time",
+                 id="end time"),
+])
+def test_periods_used_otherwise_stay_pandas(source: str, key: str) -> None:
+    check_todo(PERIOD_FRAME + source, key)
+    differential(PERIOD_FRAME + source)

@@ -740,3 +740,16 @@ big = df[df["v"] > 1]["size"].value_counts(sort=False)
 def test_value_counts_of_astype_category_is_a_todo() -> None:
     result = convert(FRAME + 'df["t"] = df["t"].astype("category")\nresult = df["t"].value_counts()\n')
     assert any(s.key == "series.value_counts" for s in result.todos)
+
+
+def test_grouping_by_a_series_of_another_frame_aligns_like_pandas() -> None:
+    # the other frame's "k" has the name of a column of `df`, not its values: pandas aligns
+    # it on the row labels
+    source = '''
+import pandas as pd
+df = pd.DataFrame({"k": ["a", "b", "a", "c"], "v": [1, 2, 3, 4]})
+other = pd.DataFrame({"k": ["x", "x", "y", "y"]})
+result = df.groupby(other["k"])["v"].sum()
+'''
+    converted = differential(source).converted_text
+    assert "TODO(porter): frame.groupby" in converted

@@ -6,6 +6,7 @@ become float64 when one is missing, Polars keeps integers with nulls (the same n
 
 from __future__ import annotations
 
+from dataclasses import dataclass, field, replace
 from fractions import Fraction
 import re
 
@@ -13,7 +14,8 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import PandasCall, RuleContext, accessor_column, derived_column
-from porter.translate.values import Column, Scalar, Value
+from porter.translate import handover
+from porter.translate.values import Column, Opaque, Scalar, Value, fresh_token
 
 
 def _dt(column: Column) -> Code:
@@ -103,6 +105,93 @@ def normalize(call: PandasCall, ctx: RuleContext) -> Value:
     if column.dtype not in (None, "datetime"):
         raise ctx.todo(f"a {column.dtype} column")
     return _result(column, _dt(column).method("truncate", "1d"), "datetime")
+
+
+@dataclass(frozen=True)
+class Periods(Column):
+    """s.dt.to_period(freq): pandas' Period values, which Polars has no type for. Only their
+    text (astype(str)) and their first instant (dt.to_timestamp(), dt.start_time) are ported;
+    its rows are its own, so any other use hands it to pandas, which makes the periods again
+    (`pandas`)."""
+
+    text: Column = field(kw_only=True)  # astype(str), an expression of the frame
+    start: Column = field(kw_only=True)  # each period's first instant
+    pandas: Code = field(kw_only=True)
+    key_prefix: str = field(default="series.periods", kw_only=True)
+
+
+def _week_text(time: Code) -> Code:
+    start = time.attr("dt").method("truncate", "1w")  # Monday: pandas' W-SUN runs Monday-Sunday
+    end = emit.binop(start, "+", emit.pl("duration", days=6))
+    return emit.pl("format", "{}/{}", start.attr("dt").method("to_string", "%Y-%m-%d"),
+                   end.attr("dt").method("to_string", "%Y-%m-%d"))
+
+
+# pandas' period frequency -> (Polars' truncation to the period's start, the period's text
+# from a timestamp in it)
+_PERIODS = {
+    "D": ("1d", lambda t: t.attr("dt").method("to_string", "%Y-%m-%d")),
+    "h": ("1h", lambda t: t.attr("dt").method("to_string", "%Y-%m-%d %H:00")),
+    "min": ("1m", lambda t: t.attr("dt").method("to_string", "%Y-%m-%d %H:%M")),
+    "W": ("1w", _week_text), "W-SUN": ("1w", _week_text),
+    "M": ("1mo", lambda t: t.attr("dt").method("to_string", "%Y-%m")),
+    "Q": ("1q", lambda t: emit.pl("format", "{}Q{}", t.attr("dt").method("year"),
+                                  t.attr("dt").method("quarter"))),
+    "Y": ("1y", lambda t: t.attr("dt").method("to_string", "%Y")),
+}
+_PERIODS["Q-DEC"], _PERIODS["Y-DEC"] = _PERIODS["Q"], _PERIODS["Y"]
+
+
+@rule("series.dt.to_period")
+def to_period(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.dt.to_period(freq) -> the periods, for their text or their start (see Periods).
+
+    Handles: D, h, min, W / W-SUN, M, Q / Q-DEC, Y / Y-DEC; astype(str) writes them as pandas
+    does ("2024-03", "2024Q1", "2024-03-04/2024-03-10"), a missing value stays missing;
+    dt.to_timestamp() and dt.start_time give each period's first instant.
+    Caveats: other frequencies, and the periods used any other way (grouped, compared,
+    printed), stay pandas.
+    """
+    column = accessor_column(call)
+    ctx.reject_unknown(call, "freq", positional=1)
+    freq = call.const("freq", 0, None, kinds=(str,))
+    if freq not in _PERIODS:
+        raise ctx.todo("Polars has no period type: dt.truncate(freq) gives the period start "
+                       f"(porter ports {', '.join(_PERIODS)})")
+    if column.dtype != "datetime":
+        raise ctx.todo("the column is not known to hold timestamps (run with --data, or parse "
+                       "it with pd.to_datetime first)")
+    every, text_of = _PERIODS[freq]
+    start = _dt(column).method("truncate", every)
+    text = _result(column, text_of(column.code), "str")
+    pandas = handover.to_pandas(column).attr("dt").method("to_period", freq)
+    frame = replace(column.frame, rows=fresh_token())  # Period values are not an expression
+    return Periods(text.code, frame=frame, name=column.name, dtype=None, text=text,
+                   start=_result(column, start, "datetime"), pandas=pandas)
+
+
+@rule("series.periods.astype")
+def periods_astype(call: PandasCall, ctx: RuleContext) -> Value:
+    """periods.astype(str) -> their text, as pandas writes them."""
+    periods = call.receiver
+    assert isinstance(periods, Periods)
+    ctx.reject_unknown(call, "dtype", positional=1)
+    target = call.arg("dtype", 0)
+    if not (isinstance(target, Opaque) and target.code.text in ("str", '"str"', "'str'")):
+        raise ctx.todo("periods cast to something other than str")
+    return periods.text
+
+
+@rule("series.dt.to_timestamp", "series.dt.start_time")
+def period_start(call: PandasCall, ctx: RuleContext) -> Value:
+    """periods.dt.to_timestamp() / dt.start_time -> each period's first instant."""
+    periods = accessor_column(call)
+    if not isinstance(periods, Periods):
+        raise ctx.todo("periods porter did not make")
+    ctx.reject_unknown(call, "how", positional=1)
+    if call.const("how", 0, "start") not in ("start", "s"):
+        raise ctx.todo("how= other than the start")
+    return periods.start
 
 
 def _is_day(column: Column, name: str) -> Code:

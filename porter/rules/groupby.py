@@ -17,7 +17,7 @@ from porter.rules import rule
 from porter.rules.elementwise import body_expression
 from porter.rules.io_options import CATEGORY_COUNTS_FUNCTION, DIVIDE_FUNCTION, UNSTACKED_FUNCTION
 from porter.translate.context import (
-    PandasCall, RuleContext, Unsupported, column_names, grouping_code,
+    PandasCall, RuleContext, Unsupported, check_same_rows, column_names, grouping_code,
 )
 from porter.translate.values import Column, Frame, Grouped, Module, Opaque, Scalar, Value, fresh_token
 
@@ -94,6 +94,9 @@ def groupby(call: PandasCall, ctx: RuleContext) -> Value:
                        positional=1)
     by = call.arg("by", 0)
     if isinstance(by, Column) and by.name is not None and by.code.text == emit.col(by.name).text:
+        # a column of this very frame; a Series of another frame (or of other rows) is aligned
+        # on the index by pandas, which has no expression form
+        check_same_rows(by, frame)
         keys: list[str] = [by.name]
     else:
         keys_const = call.const("by", 0)

@@ -1075,6 +1075,14 @@ class _Walker:
                 if value.null_is_false:
                     code = value.code.method("fill_null", False)
                     env[name] = replace(env[name], null_is_false=False)  # type: ignore[arg-type]
+            elif getattr(value, "pandas", None) is not None:
+                # values Polars has no type for (periods, bytes): pandas makes them, in the name
+                env[name] = PandasValue(emit.atom(name))
+                site = SiteDraft(f"{value.key_prefix}", "handover", "todo", 0.0,
+                                 "values Polars has no type for, kept in a name: pandas makes "
+                                 "them; use them on the line that makes them (astype(str), "
+                                 "str.decode) to port them", *self.services.statement_lines)
+                return emit.layout_chain(value.pandas, indent, f"{name} = "), [*value.sites, site]  # type: ignore[attr-defined]
             else:
                 code = handover.series_frame(value)
                 column = value.name if value.name is not None else "0"

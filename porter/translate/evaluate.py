@@ -318,6 +318,8 @@ class Evaluator:
                 _WINDOW_METHODS if receiver.kind in handover.WINDOW_KINDS else pandas_names.DT
             if receiver.kind == "dt" and name in _DT_PROPERTIES:
                 return self.dispatch(f"series.dt.{name}", PandasCall(receiver, name, node=node), node)
+            if receiver.kind == "dt" and name in _PERIOD_METHODS:  # of s.dt.to_period(...)
+                return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
             if name in names:
                 return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
         if isinstance(receiver, (Column, Frame, Grouped, Accessor, Indexer, Resampled, Indexed)):
@@ -1043,7 +1045,8 @@ _DT_PROPERTIES = {"year", "month", "day", "hour", "minute", "second", "microseco
                   "daysinmonth", "is_month_start", "is_month_end", "days", "seconds",
                   "tz", "freq", "unit", "week", "weekofyear", "timetz", "is_quarter_start",
                   "is_quarter_end", "is_year_start", "is_year_end", "components",
-                  "microseconds", "nanoseconds"}
+                  "microseconds", "nanoseconds", "start_time", "end_time"}
+_PERIOD_METHODS = {"to_timestamp", "asfreq"}
 _BUILTIN_RULES = {"len": "builtin.len", "round": "{kind}.round", "abs": "{kind}.abs",
                   "list": "builtin.list", "sum": "builtin.sum", "max": "builtin.max",
                   "min": "builtin.min"}
