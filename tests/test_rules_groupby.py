@@ -753,3 +753,59 @@ result = df.groupby(other["k"])["v"].sum()
 '''
     converted = differential(source).converted_text
     assert "TODO(porter): frame.groupby" in converted
+
+
+# A missing timestamp, two readings on one day late and early, a missing key, unicode text.
+COMPUTED_KEYS = '''
+import pandas as pd
+df = pd.DataFrame({"ts": ["2024-01-01 10:00", "2024-01-01 23:00", None, "2024-12-31 23:59",
+                          "2025-01-01 00:00", "2024-01-03 02:00"],
+                   "eur": [1.5, 2.0, 3.0, None, 4.0, 0.5],
+                   "k": ["a", "b", "a", "b", None, "ø"]})
+df["ts"] = pd.to_datetime(df["ts"], format="%Y-%m-%d %H:%M")
+'''
+
+
+@pytest.mark.parametrize("expr", [
+    'df.groupby(df["ts"].dt.date)["eur"].sum().round(2).rename_axis("day").reset_index()',
+    'df.groupby(df["ts"].dt.year)[["eur"]].mean()',
+    'df.groupby(df["ts"].dt.month, sort=False)["eur"].count()',
+    'df.groupby(df["k"].str.upper())["eur"].agg(["sum", "size"])',
+    'df.groupby(df["k"].str.upper(), dropna=False)["eur"].max()',
+    'df.groupby(df["eur"] > 1)["k"].first()',
+])
+def test_grouping_by_a_computed_series_matches_pandas(expr: str) -> None:
+    result = differential(COMPUTED_KEYS + f"result = {expr}\n")
+    assert "TODO" not in result.converted_text
+
+
+@pytest.mark.parametrize("expr", [
+    # pandas aggregates the column the key is named like, too
+    pytest.param('df.groupby(df["ts"].dt.date).max()', id="every column"),
+    pytest.param('df.groupby(df["ts"].dt.date)["eur"].apply(lambda s: s.iloc[-1])',
+                 id="handed over with pandas' own grouping"),
+])
+def test_grouping_by_a_computed_series_todos(expr: str) -> None:
+    source = COMPUTED_KEYS + f"result = {expr}\n"
+    assert any(s.status == "todo" for s in convert(source).sites)
+    differential(source)
+
+
+def test_date_keys_reach_pandas_as_dates() -> None:
+    # pandas' index holds datetime.date objects after grouping by a date column; a hand-over
+    # gives pandas code the same objects (not Timestamps)
+    source = COMPUTED_KEYS + ('df["d"] = df["ts"].dt.date\n'
+                              'g = df.groupby("d")["eur"].sum()\n'
+                              'result = [type(k).__name__ for k in g.index]\n')
+    expected, actual = run(source)["result"], run(convert(source).converted_text)["result"]
+    assert expected == actual
+
+
+@pytest.mark.parametrize("expr", [
+    'df.groupby("k")["eur"].sum().rename_axis("key").reset_index()',
+    'df.groupby(["k", df["ts"].dt.year.rename("y")])["eur"].sum()',
+    'df.groupby("k")[["eur"]].sum().rename_axis(index="key").reset_index()',
+    'df.groupby("k")[["eur"]].sum().rename_axis(columns=None)',
+])
+def test_rename_axis_matches_pandas(expr: str) -> None:
+    differential(COMPUTED_KEYS + f"result = {expr}\n")

@@ -395,3 +395,46 @@ def test_logic_on_columns_of_unknown_type_lowers_confidence(tmp_path, monkeypatc
     result = convert('import pandas as pd\ndf = pd.read_csv("x.csv")\ndf["o"] = df["a"] | df["b"]\n')
     site = next(s for s in result.sites if s.key == "series.logical")
     assert site.confidence == 0.9 and "blanks" in site.message
+
+
+# -- where and mask ------------------------------------------------------------------------------
+
+# None and NaN among the floats, an int column, text with a missing value and unicode, a
+# True/False column; comparisons that meet a missing value are False in pandas.
+WHERE_FRAME = '''
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"f": [1.5, None, -2.0, np.nan, 0.5, 3.0],
+                   "n": [1, 2, 3, 4, 5, 6],
+                   "t": ["a", None, "ø", "b", "", "c"],
+                   "g": [0.0, 1.0, None, 2.0, 3.0, 4.0]})
+'''
+
+
+@pytest.mark.parametrize("expr", [
+    'df["f"].where(df["f"] > 0)',
+    'df["f"].mask(df["f"] > 0)',
+    'df["f"].where(df["f"] > 0, 0)',
+    'df["f"].mask(df["f"] > 1.0, df["g"])',
+    'df["n"].where(df["n"] % 2 == 0)',
+    'df["n"].mask(df["f"] > 0, -1)',
+    'df["n"].where(df["f"].isna(), 0.5)',
+    'df["t"].where(df["t"].str.len() > 0, "none")',
+    'df["t"].mask(df["t"] == "ø")',
+    'df["f"].where(df["t"].isin(["a", "b"]), df["n"])',
+])
+def test_where_and_mask_match_pandas(expr: str) -> None:
+    result = differential(WHERE_FRAME + f"df[\"r\"] = {expr}\nresult = df\n")
+    assert "TODO" not in result.converted_text
+
+
+@pytest.mark.parametrize("expr", [
+    pytest.param('df["f"].where(lambda s: s > 0)', id="a callable condition"),
+    pytest.param('df["n"].where(df["n"] > 2, "low")', id="text into numbers"),
+    pytest.param('(df["f"] > 0).where(df["n"] > 2)', id="True/False given missing values"),
+])
+def test_where_todos(expr: str) -> None:
+    source = WHERE_FRAME + f"df[\"r\"] = {expr}\nresult = df\n"
+    result = convert(source)
+    assert any(s.status == "todo" for s in result.sites)
+    differential(source)

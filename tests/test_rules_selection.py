@@ -74,7 +74,7 @@ TODOS = [
     pytest.param('r = df.query("grade.str.startswith(\'A\')")', "frame.query", id="query with a method"),
     pytest.param('r = df.query("index > 2")', "frame.query", id="query on the index"),
     pytest.param('r = df.query("kg > 1", engine="python")', "frame.query", id="query engine"),
-    pytest.param("r = df.set_index('grade')", "frame.set_index", id="set_index"),
+    pytest.param("r = df.set_index(['grade', 'n'])", "frame.set_index", id="set_index"),
 ]
 
 
@@ -261,7 +261,8 @@ def test_explode_matches_pandas(expr: str) -> None:
 
 
 def test_explode_of_a_column_of_unknown_type_says_so() -> None:
-    source = EXPLODE + 'df = df.set_index("job").reset_index()\nr = df.explode("p")\n'
+    # a round trip through pandas (a row insert by position is not ported) loses the types
+    source = EXPLODE + 'df.insert(0, "n", 1)\nr = df.explode("p")\n'
     site = next(s for s in convert(source).sites if s.key == "frame.explode")
     assert site.confidence == 0.95 and "lists" in site.message
 

@@ -110,6 +110,11 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
             # pandas' Interval values have no Polars type (from_pandas keeps an extension
             # column no writer takes): the statement and the frame stay pandas
             raise Unsupported("pandas' interval labels have no Polars type: the frame stays pandas")
+        if any("mixed column" in site.message for site in value.sites):
+            # text put into numbers (fillna, where, combine_first): an object column in
+            # pandas, which pl.Series refuses or turns into text
+            raise Unsupported("pandas makes a mixed (object) column here, which has no Polars "
+                              "type: " + FRAME_STAYS_PANDAS)
         if makes_periods(value.code.text):
             # from_pandas keeps Period values as an extension column no cast or sort takes
             raise Unsupported("pandas' Period values have no Polars type: the frame stays pandas")
@@ -443,6 +448,43 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
         return with_column_updates(frame, new, {}) if frame.columns is None else \
             derive(frame, new, same_rows=True, columns=None)
     raise Unsupported("assigning to several columns or to a computed key")
+
+
+@rule("frame.join")
+def join_parts(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.join(df["c"].str.extract(pat)) -> with_columns of each named part.
+
+    The parts are made from the frame's own rows and carry its labels, so the join on the
+    index pairs each row with its own parts whatever `how` and `sort` say, when the labels
+    are 0..n-1 (unique).
+    Caveats: other frames (aligned on the index), parts of a frame whose labels are no longer
+    0..n-1, unnamed parts (labelled 0, 1, …), on= and parts named like a column (pandas raises
+    without suffixes) are TODOs.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "other", "on", "how", "lsuffix", "rsuffix", "sort", "validate",
+                       positional=5)
+    other = call.arg("other", 0)
+    advice = ("DataFrame.join aligns on the index: make the index a column and use "
+              "LazyFrame.join(on=...)")
+    if not isinstance(other, Parts) or call.has("on"):
+        raise ctx.todo(advice)
+    if not frame.labels_intact or frame.index:
+        raise ctx.todo("the frame's row labels are no longer 0..n-1 (a label may repeat): "
+                       + advice)
+    if not other.width_known or not all(isinstance(label, str) for label, _ in other.fields):
+        raise ctx.todo("parts without names (labelled 0, 1, …, as many as the longest row "
+                       "for split): name them with (?P<name>...) groups")
+    names = [label for label, _ in other.fields]
+    if frame.columns is None:
+        ctx.lower("the frame's columns are not known: pandas raises where a part is named like "
+                  "one of them, Polars overwrites it", 0.95)
+    elif set(names) & set(frame.columns):
+        raise ctx.todo("a part named like a column of the frame (pandas raises without "
+                       "lsuffix/rsuffix)")
+    columns = expanded_columns(other, names, frame, ctx)
+    return with_columns(frame, [(n, *value_expr(c, frame, ctx)) for n, c in zip(names, columns)])
 
 
 @rule("frame.assign")

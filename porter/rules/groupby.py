@@ -17,8 +17,9 @@ from porter.rules import rule
 from porter.rules.elementwise import body_expression
 from porter.rules.io_options import CATEGORY_COUNTS_FUNCTION, DIVIDE_FUNCTION, UNSTACKED_FUNCTION
 from porter.translate.context import (
-    PandasCall, RuleContext, Unsupported, check_same_rows, column_names, grouping_code,
+    PandasCall, RuleContext, Unsupported, check_same_rows, column_names, derive, grouping_code,
 )
+from porter.translate import handover
 from porter.translate.values import Column, Frame, Grouped, Module, Opaque, Scalar, Value, fresh_token
 
 AGGREGATIONS = ("sum", "mean", "median", "min", "max", "std", "var", "count", "nunique",
@@ -98,6 +99,8 @@ def groupby(call: PandasCall, ctx: RuleContext) -> Value:
         # on the index by pandas, which has no expression form
         check_same_rows(by, frame)
         keys: list[str] = [by.name]
+    elif isinstance(by, Column) and not by.element:
+        return _computed_key(call, frame, by, ctx)
     else:
         keys_const = call.const("by", 0)
         keys = column_names(keys_const, "the group keys")
@@ -116,6 +119,35 @@ def groupby(call: PandasCall, ctx: RuleContext) -> Value:
                    key_list=isinstance(by, Opaque) and isinstance(by.const, list))
 
 
+def _computed_key(call: PandasCall, frame: Frame, by: Column, ctx: RuleContext) -> Value:
+    """df.groupby(df["ts"].dt.date) -> the Series made a key column named like it, then
+    grouped by it. Its frame holds other rows than `frame` (its key column is not the
+    frame's), so nothing computed from the groups is put back into `frame` as an expression."""
+    check_same_rows(by, frame)
+    if by.name is None:
+        raise Unsupported("grouping by a computed Series without a name")
+    ctx.reject_unknown(call, "by", "sort", "dropna", "as_index", positional=1)
+    if call.const("as_index", None, True) is not True:
+        raise Unsupported("as_index=False with a computed Series as the key")
+    if by.dtype not in ("int", "float", "str", "bool", "date", "datetime"):
+        raise Unsupported("grouping by a computed Series of a type porter does not know")
+    name = by.name
+    hides = frame.columns is None or name in frame.columns
+    # a comparison that met a missing value is False in pandas (a key), null in Polars
+    key = ctx.bool_expr(by, frame) if by.dtype == "bool" else ctx.expr(by, frame)
+    code = frame.code.method("with_columns", key.method("alias", name))
+    columns = None if frame.columns is None else (
+        frame.columns if name in frame.columns else (*frame.columns, name))
+    dtypes = tuple((c, t) for c, t in frame.dtypes if c != name) + ((name, by.dtype),)
+    keyed = derive(frame, code, same_rows=False, columns=columns, dtypes=dtypes)
+    sort = bool(call.const("sort", None, True))
+    dropna = bool(call.const("dropna", None, True))
+    options = {k: v for k, v in (("sort", sort), ("dropna", dropna)) if v is not True}
+    pandas = handover.to_pandas(frame).method("groupby", handover.to_pandas(by), **options)
+    return Grouped(keyed.code, frame=keyed, keys=(name,), sort=sort, dropna=dropna,
+                   pandas=pandas, hides_column=hides)
+
+
 @rule("groupby.getitem")
 def groupby_getitem(call: PandasCall, ctx: RuleContext) -> Value:
     """g["kg"] / g[["kg", "price"]] -> the columns to aggregate."""
@@ -125,12 +157,14 @@ def groupby_getitem(call: PandasCall, ctx: RuleContext) -> Value:
         return Grouped(grouped.code, frame=grouped.frame, keys=grouped.keys, sort=grouped.sort,
                        dropna=grouped.dropna, as_index=grouped.as_index,
                        group_keys=grouped.group_keys, selection=(key.const,), single=True,
-                       prepared=grouped.prepared, key_list=grouped.key_list)
+                       prepared=grouped.prepared, key_list=grouped.key_list,
+                       pandas=grouped.pandas, hides_column=grouped.hides_column)
     if isinstance(key, Opaque) and isinstance(key.const, list):
         return Grouped(grouped.code, frame=grouped.frame, keys=grouped.keys, sort=grouped.sort,
                        dropna=grouped.dropna, as_index=grouped.as_index,
                        group_keys=grouped.group_keys, selection=tuple(key.const), single=False,
-                       prepared=grouped.prepared, key_list=grouped.key_list)
+                       prepared=grouped.prepared, key_list=grouped.key_list,
+                       pandas=grouped.pandas, hides_column=grouped.hides_column)
     raise Unsupported("selecting group columns by a computed key")
 
 
@@ -185,6 +219,9 @@ def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleCo
 def target_columns(grouped: Grouped, ctx: RuleContext) -> list[str] | None:
     if grouped.selection is not None:
         return list(grouped.selection)
+    if grouped.hides_column:
+        raise Unsupported(f"the key {grouped.keys[0]!r} is computed and named like a column, "
+                          "which pandas aggregates too: select the columns to aggregate")
     if grouped.frame.columns is not None:
         return [c for c in grouped.frame.columns if c not in grouped.keys]
     return None

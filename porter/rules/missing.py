@@ -135,6 +135,32 @@ def series_fillna(call: PandasCall, ctx: RuleContext) -> Value:
     return derived_column(column, code, dtype=column.dtype, others=[value])
 
 
+@rule("series.combine_first")
+def series_combine_first(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.combine_first(other) -> .fill_null(other), other a column of the same rows (or a
+    value).
+
+    Handles: a missing value of s takes other's on the same row, as pandas' alignment on the
+    same labels does.
+    Caveats: a Series of another frame (or of other rows: pandas aligns it on the labels and
+    keeps the labels of both) is a TODO; other of another kind (text into numbers) makes a
+    mixed column in pandas: a TODO when the types are known.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "other", positional=1)
+    other = call.arg("other", 0)
+    if not isinstance(other, Column):
+        raise Unsupported("combine_first with something other than a column of the same rows")
+    kinds = {column.dtype, other.dtype}
+    if None not in kinds and len(kinds) > 1 and kinds != {"int", "float"}:
+        raise Unsupported(f"a {other.dtype} column into a {column.dtype} one makes a mixed "
+                          "column in pandas")
+    code = column.code.method("fill_null", fill_value(other, column.frame, ctx))
+    dtype = column.dtype if len(kinds) == 1 else "float" if kinds == {"int", "float"} else None
+    return derived_column(column, code, dtype=dtype, others=[other])
+
+
 @rule("frame.fillna")
 def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
     """df.fillna(v) -> .fill_null(v); df.fillna({"a": 0}) -> per-column fill_null.

@@ -474,6 +474,62 @@ def np_where(call: PandasCall, ctx: RuleContext) -> Value:
                           others=[cond, then, other])
 
 
+@rule("series.where", "series.mask")
+def where_mask(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.where(cond, other) -> pl.when(cond).then(s).otherwise(other); s.mask(cond, other)
+    the other way round.
+
+    Handles: a condition that met a missing value is False (where replaces the value, mask
+    keeps it), as pandas' comparisons give False; `other` left out is a missing value;
+    `other` a value or a column of the same rows.
+    Caveats: an int column given missing values stays int in Polars (float in pandas; the
+    values match); a condition that is not a column (a callable, an array), `other` of another
+    kind than the column (text into numbers) and True/False columns given missing values
+    (an object column in pandas) are TODOs.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "cond", "other", positional=2)
+    cond = call.arg("cond", 0)
+    other = call.arg("other", 1, None)
+    if not isinstance(cond, Column):
+        raise Unsupported("a condition that is not a column of the frame (a function or an "
+                          "array)")
+    missing = other is None or isinstance(other, Opaque) and (
+        other.const is None or isinstance(other.const, float) and other.const != other.const)
+    if missing and column.dtype in ("bool", None):
+        if column.dtype == "bool":
+            raise Unsupported("a True/False column given missing values is an object column in "
+                              "pandas")
+        ctx.lower("the column type is not known: pandas makes a True/False column given "
+                  "missing values an object column", 0.95)
+    if not missing:
+        kind = value_dtype(other)
+        if isinstance(other, Opaque) and isinstance(other.const, str):
+            kind = "str"
+        numbers = {"int", "float"}
+        if kind is not None and column.dtype is not None and kind != column.dtype \
+                and not {kind, column.dtype} <= numbers:
+            raise Unsupported(f"a {kind} value into a {column.dtype} column makes a mixed "
+                              "column in pandas")
+    frame = column.frame
+    test = ctx.bool_expr(cond, frame)
+    if not cond.null_is_false:
+        test = test.method("fill_null", False)
+    kept = column.code
+    replacement = emit.atom("None") if missing else _branch(other, ctx, frame)
+    if call.name == "mask":
+        code = emit.pl("when", test).method("then", replacement).method("otherwise", kept)
+    elif missing:
+        code = emit.when(test, kept)
+    else:
+        code = emit.when(test, kept, replacement)
+    dtype = column.dtype if missing else _common_dtype(column, other)
+    if not missing and {value_dtype(other), column.dtype} == {"int", "float"}:
+        dtype = "float"
+    return derived_column(column, code, dtype=dtype, others=[cond, *([other] if not missing else [])])
+
+
 def _branch(value: Value, ctx: RuleContext, frame: Frame) -> Code:
     if isinstance(value, Opaque) and isinstance(value.const, str):
         return emit.pl("lit", value.const)

@@ -214,6 +214,52 @@ def reset_index(call: PandasCall, ctx: RuleContext) -> Value:
     return derive(frame, code, same_rows=True, labels_intact=True, columns=columns)
 
 
+@rule("frame.rename_axis", "series.rename_axis")
+def rename_axis(call: PandasCall, ctx: RuleContext) -> Value:
+    """rename_axis("day") of a result indexed by keys (a groupby's) -> rename the key columns.
+
+    Handles: a name per index key (one name, or a list for several keys); columns=None on a
+    frame (the columns' name, which Polars columns do not have) writes nothing.
+    Caveats: naming the row numbers of a frame without an index (reset_index would make a
+    column of them), None for an index name and a mapper function are TODOs.
+    """
+    receiver = call.receiver
+    frame = receiver.frame if isinstance(receiver, Column) else receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "mapper", "index", "columns", "axis", positional=1)
+    if call.has("columns"):
+        if isinstance(receiver, Column) or call.has("mapper") or call.has("index") \
+                or call.const("columns", None, 0) is not None:
+            raise ctx.todo("naming the columns: Polars columns have no name")
+        return receiver  # df.rename_axis(columns=None): nothing to do in Polars
+    if call.const("axis", None, 0) not in (0, "index", "rows"):
+        raise ctx.todo("naming the columns: Polars columns have no name")
+    names = call.const("index", None) if call.has("index") else call.const("mapper", 0, None)
+    names = [names] if isinstance(names, str) else names
+    if not frame.index:
+        raise ctx.todo("naming row numbers: reset_index() would make a column of them; keep "
+                       "them as a column (with_row_index) named as you like")
+    if not (isinstance(names, (list, tuple)) and len(names) == len(frame.index)
+            and all(isinstance(n, str) for n in names)):
+        raise ctx.todo("a name per index key, as text (None, a function or a dict are not "
+                       "ported)")
+    mapping = {old: new for old, new in zip(frame.index, names) if old != new}
+    if not mapping:
+        return receiver
+    others = [c for c in frame.columns or () if c not in frame.index]
+    if set(mapping.values()) & set(others) or len(set(names)) != len(names):
+        raise ctx.todo("an index key named like a column: pandas keeps both, Polars cannot")
+    code = frame.code.method("rename", mapping)
+    renamed = derive(frame, code, same_rows=True, index=tuple(names),
+                     columns=tuple(mapping.get(c, c) for c in frame.columns)
+                     if frame.columns is not None else None,
+                     dtypes=tuple((mapping.get(c, c), t) for c, t in frame.dtypes))
+    if isinstance(receiver, Column):
+        return Column(receiver.code, frame=renamed, name=receiver.name, dtype=receiver.dtype,
+                      refs=receiver.refs)
+    return renamed
+
+
 @rule("series.reset_index")
 def series_reset_index(call: PandasCall, ctx: RuleContext) -> Value:
     """s.reset_index() -> a frame of the index columns and the values (name= renames them)."""

@@ -1120,7 +1120,17 @@ class _Walker:
             # `df = df.set_index("ts")`: the name holds the Polars frame (the column kept);
             # pandas code porter does not port gets it with its labels set again
             self.note_stale_series(name, value.frame, env)
-            code = value.frame.code
+            # the labels' column first, as pandas puts it back (reset_index) and as porter
+            # keeps the keys of a groupby's result
+            frame, key = value.frame, value.key
+            if frame.columns is None:
+                code = frame.code.method("select", key, emit.pl("exclude", key))
+            elif frame.columns[0] != key:
+                columns = (key, *(c for c in frame.columns if c != key))
+                code = frame.code.method("select", *columns)
+                value = replace(value, frame=replace(frame, columns=columns))
+            else:
+                code = frame.code
             self.note_parents(code, env)
             kept = replace(value.frame, code=emit.atom(name), sites=(), binding=self.statement_key)
             env[name] = replace(value, code=handover.to_pandas(kept).method("set_index", value.key),

@@ -111,8 +111,13 @@ def to_pandas(value: Value) -> Code:
             return value.pandas  # type: ignore[attr-defined]  # pandas makes it again (rules/windows.py)
         if value.frame.index:
             name = value.name if value.name is not None else "0"
-            code = _labels(series_frame(value).method("collect").method("to_pandas"),
-                           value.frame).index(name)
+            kinds = tuple((c, t) for c, t in value.frame.dtypes if c in value.frame.index)
+            if value.dtype is not None:
+                kinds += ((name, value.dtype),)
+            # date keys are datetime.date objects in pandas' index, as pandas grouped them
+            made = _as_pandas_made_them(series_frame(value).method("collect").method("to_pandas"),
+                                        kinds, (*value.frame.index, name))
+            code = _labels(made, value.frame).index(name)
         elif value.dtype == "category":  # categories sorted, as astype("category") made them
             code = (series_frame(value).method("collect").method("to_series")
                     .method("cast", emit.atom("pl.String")).method("to_pandas").method("astype", "category"))
@@ -127,6 +132,11 @@ def to_pandas(value: Value) -> Code:
                 code = code.method("fillna", emit.atom('float("nan")'))
         # a Series pandas made without a name has none (Polars calls it "0")
         return code.method("rename", None) if value.name is None else code
+    if isinstance(value, Grouped) and value.pandas is not None:
+        code = value.pandas
+        if value.selection is not None:
+            code = code.index(value.selection[0] if value.single else list(value.selection))
+        return code
     if isinstance(value, Grouped):
         args: dict[str, object] = {}
         if not value.sort:

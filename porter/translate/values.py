@@ -118,6 +118,11 @@ class Grouped(Value):
     prepared: bool = field(default=False, kw_only=True)  # `code` is already a LazyGroupBy
     # the keys were given as a list (`groupby(["k"])`): pandas' group keys are tuples then
     key_list: bool = field(default=False, kw_only=True)
+    # grouped by a computed Series (`df.groupby(df["ts"].dt.date)`), made a key column of
+    # `frame`: pandas' own groupby for code porter hands over, and whether the key's name is
+    # a column the key hides (pandas still aggregates that column)
+    pandas: Code | None = field(default=None, kw_only=True)
+    hides_column: bool = field(default=False, kw_only=True)
 
 
 @dataclass(frozen=True)
