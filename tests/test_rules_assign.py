@@ -382,3 +382,14 @@ def test_columns_name_none_writes_nothing() -> None:
 def test_columns_name_given_is_a_todo() -> None:
     check_todo(PIVOTED + 'load.columns.name = "series"\nload = load.reset_index()\n',
                "frame.columns.name")
+
+
+@pytest.mark.parametrize("source", [
+    'result = df.groupby("k")["v"].mean().rename("mean_v").reset_index()',
+    'result = df.assign(w=df["v"].rename("z"))',
+    'df["w"] = (df["v"] * 2).rename("twice")\nresult = df',
+])
+def test_series_rename_matches_pandas(source: str) -> None:
+    frame = 'import pandas as pd\ndf = pd.DataFrame({"k": ["a", "b", "a", None], "v": [1.0, None, 3.0, 4.0]})\n'
+    result = differential(frame + source + "\n")
+    assert "TODO" not in result.converted_text

@@ -583,3 +583,32 @@ def test_select_on_a_condition_with_blanks_lowers_confidence() -> None:
                      '["pos", "x"], default="-")\n')
     site = next(s for s in result.sites if s.key == "np.select")
     assert site.status != "todo" and site.confidence <= 0.95 and "np.select refuses" in site.message
+
+
+BANDED = '''
+import pandas as pd
+df = pd.DataFrame({"age": [25, None, 61, 30, 59.5], "n": ["a", None, "b", "c", "d"]})
+
+
+def band(age):
+    # the choir's own age bands
+    if pd.isna(age):
+        return "unknown"
+    return "under 30" if age < 30 else "30+"
+
+'''
+
+
+def test_a_function_ported_wherever_it_is_applied_is_left_out() -> None:
+    # nothing calls it any more, and keeping it would keep the pandas import
+    result = differential(BANDED + 'df["band"] = df["age"].apply(band)\nresult = df\n')
+    text = result.converted_text
+    assert "def band" not in text and "import pandas" not in text
+    assert "# porter: band(age), a function of each value, is ported as one expression" in text
+    assert "# the choir's own age bands" in text
+
+
+def test_a_function_still_called_is_kept() -> None:
+    source = BANDED + 'df["band"] = df["age"].apply(band)\nfirst = band(40)\nresult = df\n'
+    result = differential(source, "result", "first")
+    assert "def band" in result.converted_text

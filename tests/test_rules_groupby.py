@@ -809,3 +809,30 @@ def test_date_keys_reach_pandas_as_dates() -> None:
 ])
 def test_rename_axis_matches_pandas(expr: str) -> None:
     differential(COMPUTED_KEYS + f"result = {expr}\n")
+
+
+PIVOT_FRAME = '''
+import pandas as pd
+df = pd.DataFrame({"band": ["b", "a", "b", "a", "c", None], "voice": ["alto", "alto", "bass",
+                   "bass", "alto", "bass"], "att": [0.5, 0.25, 1.0, None, 0.75, 0.1],
+                   "n": [1, 2, 3, 4, 5, 6], "t": ["x", "y", "z", "ü", "v", ""]})
+'''
+
+
+@pytest.mark.parametrize("values", ["att", "n", "t"])
+def test_pivot_matches_pandas(values: str) -> None:
+    # a missing index key is a row of its own (first, as pandas sorts it); a combination no
+    # row has is missing, and makes the int cells float in pandas
+    result = differential(PIVOT_FRAME + f'result = df.pivot(index="band", columns="voice", '
+                                        f'values="{values}")\nflat = result.reset_index()\n',
+                          "result", "flat")
+    assert "TODO" not in result.converted_text
+
+
+def test_pivot_of_a_repeated_combination_raises_in_both() -> None:
+    source = PIVOT_FRAME + ('result = df.assign(band="b")'
+                            '.pivot(index="voice", columns="band", values="n")\n')
+    with pytest.raises(ValueError):
+        run(source)
+    with pytest.raises(Exception, match="(?i)single value|duplicate"):
+        run(convert(source).converted_text)["result"].collect()

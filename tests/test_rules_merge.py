@@ -228,8 +228,8 @@ def test_unknown_columns_match_pandas(merge: str, tmp_path, monkeypatch) -> None
 # The TODO output hands the frames to pandas and still runs. `by_name[...]` is a frame porter
 # does not track; `data` is read without --data, so porter does not know its columns.
 TODOS = [
-    pytest.param('result = left.merge(right, on="k", indicator=True)', "frame.merge",
-                 "indicator=True", id="indicator"),
+    pytest.param('result = left.merge(right, on="k", how="right", indicator=True)',
+                 "frame.merge", "indicator= on a right merge", id="indicator on a right merge"),
     pytest.param('result = left.merge(other, on="k", how="right", validate="m:1")',
                  "frame.merge", "validate= on a right join", id="validate on a right join"),
     pytest.param('result = left.merge(right, left_index=True, right_index=True)', "frame.merge",
@@ -714,3 +714,25 @@ both = names.merge(other, left_on="id", right_on="vid", how="{how}")
 ids = both[["id", "vid"]].astype(str)
 ids2 = other.merge(names, left_on="vid", right_on="id", how="{how}")[["vid", "id"]].astype(str)
 """, "result", "rev", "ids", "ids2")
+
+
+# indicator=: pandas' Categorical of where each row came from (categories left_only,
+# right_only, both, whatever rows there are), read by comparisons, value_counts and filters
+INDICATED = [
+    pytest.param('both = left.merge(right, on="k", how="outer", indicator=True)', id="outer"),
+    pytest.param('both = pd.merge(left, right, on="k", how="left", indicator=True)', id="left"),
+    pytest.param('both = left.merge(right, on="k", indicator="source")\n'
+                 'both = both.rename(columns={"source": "_merge"})', id="inner, named"),
+    pytest.param('both = left.merge(other, on=["k", "lv"], how="outer", indicator=True)',
+                 id="two keys"),
+]
+
+
+@pytest.mark.parametrize("merge", INDICATED)
+def test_indicator_matches_pandas(merge: str) -> None:
+    source = FRAMES + merge + (
+        '\nonly_left = both.loc[both["_merge"] == "left_only", "k"].nunique()'
+        '\ncounts = both["_merge"].value_counts()'
+        '\nkept = both[both["_merge"] == "both"].drop(columns="_merge")\n')
+    result = differential(source, "both", "only_left", "counts", "kept")
+    assert "TODO" not in result.converted_text

@@ -300,3 +300,21 @@ def test_text_filled_into_numbers_keeps_the_frame_on_pandas() -> None:
     result = convert(source)
     assert any(s.status == "todo" for s in result.sites)
     differential(source)
+
+
+def test_pd_isna_of_a_column_and_in_a_function_given_to_apply() -> None:
+    source = COMBINE_FRAME + '''
+def band(value):
+    if pd.isna(value):
+        return "unknown"
+    return "high" if value > 2 else "low"
+
+
+df["band"] = df["f"].apply(band)
+df["known"] = df["k"].map(lambda x: "none" if pd.isnull(x) else x.upper())
+df["flag"] = pd.notna(df["f"])
+plain = pd.isna(3.0)
+result = df
+'''
+    converted = differential(source, "result", "plain").converted_text
+    assert "TODO" not in converted

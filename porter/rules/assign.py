@@ -22,7 +22,7 @@ from porter.translate.context import (
 )
 from porter.rules.strings import LIST_STR, expanded_columns
 from porter.translate.handover import makes_periods, orders_categories, text_categories
-from porter.translate.values import Column, Frame, Opaque, PandasValue, Parts, Scalar, Value
+from porter.translate.values import MISSING, Column, Frame, Opaque, PandasValue, Parts, Scalar, Value
 
 
 def named(code: Code, name: str) -> tuple[Code | None, dict[str, Code]]:
@@ -519,6 +519,23 @@ def _rebase(column: Column, frame: Frame) -> Column:
     return Column(column.code, frame=frame, name=column.name, dtype=column.dtype,
                   null_is_false=column.null_is_false, refs=column.refs,
                   versions=tuple((n, frame.version(n)) for n in column.refs))
+
+
+@rule("series.rename")
+def series_rename(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.rename("name") -> the column named so (alias where it becomes a frame's column).
+
+    Caveats: a dict or a function renames the index labels in pandas: a TODO."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "index", positional=1)
+    name = call.const("index", 0, MISSING)
+    if not isinstance(name, str):
+        raise Unsupported("renaming by a dict, a function or None: pandas renames the index "
+                          "labels (or drops the name)")
+    if name in column.frame.index:
+        raise Unsupported("the new name is an index key's: pandas keeps both, Polars cannot")
+    return replace(column, name=name, sites=())
 
 
 @rule("frame.rename")

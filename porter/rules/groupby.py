@@ -681,6 +681,47 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
                  int_labels_except=int_labels)
 
 
+@rule("frame.pivot")
+def pivot(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.pivot(index=, columns=, values=) -> the collected frame pivoted without aggregating
+    (a repeated combination raises in both), laid out as pandas lays it out.
+
+    Handles: the rows sorted by the index key (a missing key first, as pandas keeps it), the
+    new columns in the order of their values; integer cells turn float when a combination is
+    missing, as pandas' are (pandas_unstacked); the index key stays a label column.
+    Caveats: a missing value in the columns key (pandas labels a column NaN, Polars "null"),
+    values or columns given as lists, and index left out (the row labels) are TODOs or lower
+    the confidence. The new columns are named by their values as text.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "columns", "index", "values")
+    index = call.const("index", None, None)
+    columns = call.const("columns", None, None)
+    values = call.const("values", None, None)
+    if not all(isinstance(v, str) for v in (index, columns, values)):
+        raise Unsupported("index, columns and values each naming one column (the row labels, "
+                          "lists and several values make other layouts)")
+    if frame.index:
+        raise Unsupported("the frame keeps an index (after a groupby): call reset_index() first")
+    known = frame.columns
+    absent = [c for c in (index, columns, values) if known is not None and c not in known]
+    if absent:
+        raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
+    value_dtype = frame.dtype(values)
+    if value_dtype is None:
+        ctx.lower("the values' type is not known: pandas turns whole numbers float when a "
+                  "combination is missing", 0.9)
+    ctx.lower("the new columns are named by their values as text (pandas keeps the values); "
+              "a missing value in the columns key labels a column NaN in pandas, \"null\" here",
+              0.95)
+    code = frame.code.method("select", index, columns, values)
+    code = pivot_sorted(code, columns, [index], values, None, value_dtype in ("int", "bool"))
+    int_labels = (index,) if frame.dtype(columns) == "int" else None
+    return Frame(code.method("lazy"), columns=None, index=(index,), labels_intact=False,
+                 int_labels_except=int_labels)
+
+
 # -- groupby().apply(f) where f makes one row of aggregates ---------------------------------------
 #
 # The function is not run per group: its body (a lambda, or the script's own function made one

@@ -8,7 +8,7 @@ written as a missing value), and a NaN produced by arithmetic would match only N
 from __future__ import annotations
 
 from collections.abc import Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import Any
 
 import libcst as cst
@@ -102,8 +102,7 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
             raise ctx.todo(f"the {side} side is not a frame porter tracks: make it a "
                            "LazyFrame (pl.from_pandas(...).lazy()) where it is built")
     assert isinstance(left, Frame) and isinstance(right, Frame)
-    if args.const("indicator", None, False):
-        raise ctx.todo(INDICATOR_ADVICE)
+    indicator = _indicator(args, ctx)
     validate = _validate(args, ctx)
     if args.const("left_index", None, False) or args.const("right_index", None, False):
         raise ctx.todo("left_index/right_index join on row labels: make the labels a column "
@@ -148,8 +147,20 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
         kwargs["validate"] = validate
     if suffix is not None:
         kwargs["suffix"] = suffix
-    code = lside.code.method("join", rside.code, **kwargs)
     columns = _result_columns(lside, rside, coalesced)
+    if indicator is not None:
+        if how in ("right", "cross"):
+            raise ctx.todo(f"indicator= on a {how} merge: " + INDICATOR_ADVICE)
+        if columns is None:
+            ctx.lower("the columns are not known: pandas raises where a column is named "
+                      f"{indicator!r} already, Polars replaces it", 0.95)
+        elif indicator in columns or set(columns) & set(_SIDE_MARKS):
+            raise ctx.todo(f"a column is named {indicator!r}, {_SIDE_MARKS[0]!r} or "
+                           f"{_SIDE_MARKS[1]!r} (pandas raises for the first; porter marks the "
+                           "sides with the others)")
+        lside = replace(lside, code=lside.code.method("with_columns", **{_SIDE_MARKS[0]: emit.pl("lit", True)}))
+        rside = replace(rside, code=rside.code.method("with_columns", **{_SIDE_MARKS[1]: emit.pl("lit", True)}))
+    code = lside.code.method("join", rside.code, **kwargs)
     if how == "right" and coalesced:
         code = _right_join_order(code, lside, rside, columns, suffix or "_right")
     if how == "outer" or (args.const("sort", None, False) and how != "cross"):
@@ -178,9 +189,35 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
                   "object) when a row finds no match, which depends on the data; Polars keeps "
                   "its type with missing values", 0.95)
         dtypes = {c: t for c, t in dtypes.items() if c not in changing}
+    if indicator is not None:
+        # pandas' Categorical of where each row came from, its categories in this order
+        left, right = (emit.col(m).method("is_not_null") for m in _SIDE_MARKS)
+        source = emit.pl("when", emit.binop(left, "&", right)).method("then", emit.pl("lit", "both")) \
+            .method("when", left).method("then", emit.pl("lit", "left_only")) \
+            .method("otherwise", emit.pl("lit", "right_only")) \
+            .method("cast", emit.pl("Enum", ["left_only", "right_only", "both"]))
+        code = code.method("with_columns", **{indicator: source}).method("drop", *_SIDE_MARKS)
+        if columns is not None:
+            columns = (*columns, indicator)
+            dtypes[indicator] = "enum"
     return Frame(code, columns=columns, labels_intact=True,
                  index=lside.index if lside.index and rside.index else (),
                  dtypes=tuple((c, dtypes[c]) for c in columns or () if c in dtypes))
+
+
+_SIDE_MARKS = ("_in_left", "_in_right")
+
+
+def _indicator(args: PandasCall, ctx: RuleContext) -> str | None:
+    """The name of pandas' indicator column, or None without one."""
+    value = args.const("indicator", None, False)
+    if value is False:
+        return None
+    if value is True:
+        return "_merge"
+    if isinstance(value, str) and value:
+        return value
+    raise ctx.todo(INDICATOR_ADVICE)
 
 
 def _names(value: Any, what: str, ctx: RuleContext) -> tuple[str, ...] | None:

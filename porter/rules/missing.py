@@ -31,6 +31,22 @@ def notna(call: PandasCall, ctx: RuleContext) -> Value:
     return derived_column(column, column.code.method("is_not_null"), dtype="bool")
 
 
+@rule("pd.isna", "pd.isnull", "pd.notna", "pd.notnull")
+def pd_isna(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.isna(s) / pd.notna(s), of a column or of the value a function given to apply or
+    map receives -> .is_null() / .is_not_null(), as s.isna().
+
+    Caveats: a frame, a list or a plain Python value stays pandas' (porter keeps such calls
+    as written where no column is involved)."""
+    ctx.reject_unknown(call, "obj", positional=1)
+    value = call.arg("obj", 0)
+    if not isinstance(value, Column):
+        raise Unsupported("only a column, or the value a function given to apply receives, is "
+                          "ported")
+    method = "is_null" if call.name in ("isna", "isnull") else "is_not_null"
+    return derived_column(value, value.code.method(method), dtype="bool")
+
+
 def _subset(call: PandasCall, frame: Frame) -> list[str] | None:
     subset = call.const("subset", None, None)
     if subset is None:

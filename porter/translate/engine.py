@@ -109,6 +109,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
         services.call_sites = {}
         services.labels_needed = set()
         services.consumers, services.frame_parents = {}, {}
+        services.applied_functions, services.applied_kinds = {}, {}
         walker = _Walker(services, facts, emit_code=False)
         walker.block(module.body, _initial_env(facts), module.default_indent, "")
         updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values)
@@ -122,6 +123,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
         labels_before = set(services.labels_needed)
         services.call_sites = {}
         services.consumers, services.frame_parents = {}, {}
+        services.applied_functions, services.applied_kinds = {}, {}
         walker = _Walker(services, facts, emit_code=False)
         walker.block(module.body, _initial_env(facts), module.default_indent, "")
         if services.labels_needed == labels_before:
@@ -226,10 +228,12 @@ class _Walker:
         if isinstance(stmt, cst.FunctionDef):
             if self.has_next and not self.carried and ported_where_applied(stmt, self.services) \
                     and self.services.name_uses.get(stmt.name.value, 0) > 1:
-                # every use is an apply porter wrote as group_by().agg(): the pandas function is
-                # no longer run, and keeping it would keep the pandas import (a third of a
-                # second and 100 MiB at start-up); its comments stay, with a note
-                self.carried = [*stmt.leading_lines, *removed_note(stmt)]
+                # every use is an apply porter wrote as expressions (group_by().agg(), or
+                # one expression of the column): the function is no longer run, and keeping
+                # it may keep the pandas import (a third of a second and 100 MiB at start-up);
+                # its comments stay, with a note
+                kinds = self.services.applied_kinds.get(stmt.name.value)
+                self.carried = [*stmt.leading_lines, *removed_note(stmt, kinds)]
                 return [], env
             return [self.function_def(stmt, env, unit, indent)], env
         if isinstance(stmt, cst.If):
@@ -256,7 +260,8 @@ class _Walker:
         return [stmt], env
 
     def function_def(self, stmt: cst.FunctionDef, env: dict[str, Value], unit: str, indent: str) -> Any:
-        if ported_where_applied(stmt, self.services):
+        if ported_where_applied(stmt, self.services) \
+                and self.services.applied_kinds.get(stmt.name.value, {"group"}) == {"group"}:
             return marked_as_applied(stmt)  # its pandas body is no longer run: left as written
         function = self.services.functions.get(stmt.name.value)
         local = dict(env)

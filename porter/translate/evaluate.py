@@ -118,6 +118,7 @@ class Services:
     # the script's own functions a converted groupby().apply read as expressions, with the
     # ids of those apply calls (functions.ported_where_applied)
     applied_functions: dict[str, set[int]] = field(default_factory=dict)
+    applied_kinds: dict[str, set[str]] = field(default_factory=dict)  # "group", "value", "row"
 
 
 class Evaluator:
@@ -499,7 +500,8 @@ class Evaluator:
             return self.generic(node)
         if isinstance(func, Module) and func.qualname in _PANDAS_SETTINGS:
             return self.generic(node)  # display settings: pandas still prints what is left to it
-        if isinstance(func, Module) and func.qualname.startswith("numpy.") \
+        if isinstance(func, Module) and (func.qualname.startswith("numpy.") or func.qualname
+                                         in _VALUE_FUNCTIONS) \
                 and func.qualname not in _NUMPY_SCALARS:
             args = self.call_args(node)
             if args is None or not any(is_pandas(v) for v in (*args[0], *args[1].values())):
@@ -800,10 +802,12 @@ class Evaluator:
         if ctx.todo_note is not None:
             message = ctx.todo_note
         site = SiteDraft(key, entry.rule or key, status, ctx.confidence, message, line, end_line)
-        if key == "groupby.apply" and status == "converted":
-            function = call.args[0] if call.args else call.kwargs.get("func")
+        if key in _APPLIES and status == "converted":
+            function = call.args[0] if call.args else call.kwargs.get(
+                "arg" if key == "series.map" else "func")
             if isinstance(function, Opaque) and isinstance(function.node, cst.Name):
                 self.services.applied_functions.setdefault(function.node.value, set()).add(id(node))
+                self.services.applied_kinds.setdefault(function.node.value, set()).add(_APPLIES[key])
         return result.with_sites(*_child_sites(call, result), site)
 
     def evaluate_with(self, node: cst.BaseExpression, bindings: dict[str, Value]) -> Value:
@@ -1157,6 +1161,13 @@ _TIMESTAMP_ONLY = {
     "is_month_start": "({x}.day == 1)",
 }
 _TIMESTAMP_NAMES = {"day_name": "%A", "month_name": "%B"}
+
+# calls that apply the script's own function, ported as expressions: what the function is given
+_APPLIES = {"groupby.apply": "group", "series.apply": "value", "series.map": "value",
+            "frame.apply": "row"}
+
+# pandas functions of plain values too (pd.isna(3.0)): left as written without a column
+_VALUE_FUNCTIONS = frozenset({"pandas.isna", "pandas.isnull", "pandas.notna", "pandas.notnull"})
 
 # numpy scalars porter reads even without pandas values in the call (np.timedelta64(1, "h"))
 _NUMPY_SCALARS = frozenset({"numpy.timedelta64"})

@@ -281,7 +281,12 @@ def _marked(stmt: cst.FunctionDef) -> bool:
                for line in stmt.leading_lines)
 
 
-def removed_note(stmt: cst.FunctionDef) -> list[cst.EmptyLine]:
+_APPLIED_AS = {"group": ("a pandas function of each group", "group_by().agg()", "expressions "),
+               "value": ("a function of each value", "one expression", ""),
+               "row": ("a function of each row", "one expression", "")}
+
+
+def removed_note(stmt: cst.FunctionDef, kinds: set[str] | None = None) -> list[cst.EmptyLine]:
     """The comment left where a function ported where applied was (engine.block)."""
     name = stmt.name.value
     params = ", ".join(p.name.value for p in stmt.params.params)
@@ -292,9 +297,10 @@ def removed_note(stmt: cst.FunctionDef) -> list[cst.EmptyLine]:
             comments.append(node.value)
 
     stmt.body.visit(Comments())
-    texts = [f"# porter: {name}({params}), a pandas function of each group, is ported as "
-             "group_by().agg()",
-             "#   expressions where it was applied, and left out here"
+    what, ported, rest = _APPLIED_AS[min(kinds)] if kinds and len(kinds) == 1 else \
+        ("a function given to apply", "expressions", "")
+    texts = [f"# porter: {name}({params}), {what}, is ported as {ported}",
+             f"#   {rest}where it was applied, and left out here"
              + (" (its comments follow)" if comments else "")]
     return [cst.EmptyLine(comment=cst.Comment(text)) for text in (*texts, *comments)]
 

@@ -42,13 +42,9 @@ wheels = wheels.drop_nulls("now_kg").collect().lazy()
 print(wheels.select(pl.len()).collect().item())
 
 
-def sale_status(row):
-    # the affineurs' rule of thumb, kept exactly as they wrote it down
-    if row["loss_pct"] >= 8 and row["rind_score"] >= 4:
-        return "ready"
-    if row["loss_pct"] >= 8:
-        return "check rind"
-    return "keep ageing"
+# porter: sale_status(row), a function of each row, is ported as one expression
+#   where it was applied, and left out here (its comments follow)
+# the affineurs' rule of thumb, kept exactly as they wrote it down
 
 
 wheels = wheels.with_columns(turns=pl.col("turns").fill_null(0).cast(pl.Int64))
