@@ -379,8 +379,8 @@ TODOS = [
                  "frame.groupby.grouper", id="sort=False"),
     pytest.param('df.groupby(pd.Grouper(key="ts", freq="D", offset="1h"))["v"].sum()',
                  "pd.Grouper", id="grouper offset"),
-    pytest.param('df.resample("D", on="ts").agg({"v": ["sum", "mean"]})', "resample.agg",
-                 id="dict of lists"),
+    pytest.param('df.resample("D", on="ts").agg({"v": ("sum", "mean")})', "resample.agg",
+                 id="dict of tuples"),
 ]
 
 
@@ -425,3 +425,18 @@ def test_days_counted_in_bins_of_several_days_are_lowered() -> None:
 def test_a_column_by_attribute() -> None:
     result = differential(FRAME + 'result = df.resample("D", on="ts").v.sum()\n')
     assert "TODO(porter)" not in result.converted_text
+
+
+@pytest.mark.parametrize("agg", [
+    '{"v": ["sum", "mean"], "f": "max"}',
+    '{"f": ["min", "max", "mean"]}',
+])
+def test_dict_of_lists_flattened_as_pandas_joins_them(agg: str) -> None:
+    # pandas makes (column, function) pairs; the script joins them into flat names
+    source = FRAME + (f'result = df.set_index("ts").groupby("st").resample("D").agg({agg})\n'
+                      'result.columns = ["_".join(c) for c in result.columns]\n'
+                      'result = result.reset_index()\n'
+                      f'weekly = df.resample("W", on="ts").agg({agg})\n'
+                      'weekly.columns = ["_".join(c) for c in weekly.columns]\n')
+    result = differential(source, "result", "weekly")
+    assert "TODO" not in result.converted_text

@@ -610,3 +610,23 @@ def test_ewm_mean_without_adjust_across_gaps_is_a_todo() -> None:
     # pandas decays the old weight across a missing value; Polars does not
     result = differential(EWM + 'result = df.assign(e=df["v"].ewm(span=3, adjust=False).mean())\n')
     assert "series.ewm.mean" in [s.key for s in result.todos]
+
+
+def test_frame_diff_of_a_wide_table_keeps_its_keys() -> None:
+    # a resample unstacked by station: each station's week-on-week change, as pandas makes it
+    source = '''
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"st": ["a", "b", "a", "b", "a", None],
+                   "ts": ["2024-01-01", "2024-01-02", "2024-01-09", "2024-01-20", "2024-01-23",
+                          "2024-01-05"],
+                   "snow": [10.0, 4.0, np.nan, 6.5, 12.5, 3.0]})
+df["ts"] = pd.to_datetime(df["ts"], format="%Y-%m-%d")
+wide = df.set_index("ts").groupby("st")["snow"].resample("W-SUN").mean().unstack(level=0)
+trend = wide.diff().round(1)
+trend.index = trend.index.strftime("%Y-%m-%d")
+result = trend.rename_axis("week_ending").reset_index()
+twice = wide.diff(2)
+'''
+    converted = differential(source, "result", "twice").converted_text
+    assert "TODO" not in converted

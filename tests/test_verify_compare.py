@@ -430,3 +430,18 @@ def test_large_tables_are_fast() -> None:
     assert compare(original, changed, ignore_order=True).differing_cells == 1
     assert compare(original, changed.head(n - 1)).status == "different"
     assert time.perf_counter() - start < 10
+
+
+def test_a_rounded_sum_that_landed_on_a_half_is_named_as_such() -> None:
+    # a sum landed on 10431.325: added in one order it is 10431.325000000001 and rounds to
+    # .33, in the other 10431.324999999999 and rounds to .32
+    pandas_side = pd.DataFrame({"k": ["a", "b"], "eur": [10431.33, 1.5]})
+    polars_side = pl.DataFrame({"k": ["a", "b"], "eur": [10431.32, 1.5]})
+    result = compare(pandas_side, polars_side)
+    assert result.status == "different"
+    assert "rounding half" in result.detail
+
+
+def test_a_real_difference_is_not_named_a_rounding_half() -> None:
+    result = compare(pd.DataFrame({"eur": [1.25, 2.5]}), pl.DataFrame({"eur": [1.25, 2.75]}))
+    assert result.status == "different" and "rounding half" not in result.detail

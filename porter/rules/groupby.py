@@ -5,7 +5,7 @@ from __future__ import annotations
 
 from dataclasses import replace
 
-from dataclasses import dataclass, replace
+from dataclasses import dataclass, field, replace
 from typing import Any
 
 import libcst as cst
@@ -679,6 +679,60 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     int_labels = tuple(keys) if frame.dtype(columns) == "int" else None
     return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False,
                  int_labels_except=int_labels)
+
+
+@dataclass(frozen=True)
+class ExtremeLabels(Column):
+    """g["c"].idxmin() / idxmax(): each group's row label of its smallest / largest value (the
+    first among ties), as a Series indexed by the keys. `source` is the grouped frame, whose
+    labels are 0..n-1: df.loc[these] of that frame is a filter of it (rules/selection.py)."""
+
+    source: Frame = field(kw_only=True)
+    keys: tuple[str, ...] = field(kw_only=True)
+    column: str = field(kw_only=True)
+    how: str = field(kw_only=True)  # "min" or "max"
+
+
+@rule("groupby.idxmin", "groupby.idxmax")
+def group_extreme_labels(call: PandasCall, ctx: RuleContext) -> Value:
+    """g["c"].idxmin() / idxmax() -> each group's row number of its first smallest / largest
+    value (pl.col("index").get(pl.col(c).arg_min()) on the rows numbered), keys sorted.
+
+    Handles: missing values skipped; the first of equal values; df.loc[these, cols] of the
+    same frame as a filter of each group's row, in the keys' order.
+    Caveats: a frame whose labels are no longer 0..n-1, several columns, sort=False, keys
+    kept (dropna=False) and skipna=False are TODOs; a group whose values are all missing makes
+    pandas raise, here its label is missing (0.95).
+    """
+    grouped = grouped_of(call)
+    ctx.reject_unknown(call, "skipna", "numeric_only")
+    if call.const("skipna", None, True) is not True:
+        raise Unsupported("skipna=False")
+    frame = grouped.frame
+    if not (grouped.single and grouped.selection):
+        raise Unsupported("the labels of several columns (select one column first)")
+    if not frame.labels_intact or frame.index or grouped.pandas is not None:
+        raise Unsupported("the frame's row labels are no longer 0..n-1: keep the row number as "
+                          "a column (with_row_index) where the frame is made")
+    if not (grouped.sort and grouped.dropna and grouped.as_index):
+        raise Unsupported("groupby options other than the defaults")
+    column = grouped.selection[0]
+    if frame.columns is not None and "index" in frame.columns:
+        raise Unsupported("the frame has a column named \"index\"")
+    ctx.lower("a group whose values are all missing makes pandas raise; its label is missing "
+              "here", 0.95)
+    how = call.name.removeprefix("idx")
+    numbered = frame.code.method("with_row_index").method(
+        "with_columns", emit.col("index").method("cast", emit.atom("pl.Int64")))
+    keyed = replace(grouped, code=numbered, frame=replace(frame, code=numbered), selection=None,
+                    single=False, sites=())
+    label = emit.col("index").method("get", emit.col(column).method(f"arg_{how}"))
+    result = aggregate(keyed, [label.method("alias", column)], [column], ctx,
+                       series_name=column, is_series=True, dtypes=["int"])
+    assert isinstance(result, Column)
+    return ExtremeLabels(result.code, frame=result.frame, name=result.name, dtype="int",
+                         refs=result.refs, versions=result.versions, source=frame,
+                         keys=grouped.keys, column=column, how=how)
 
 
 @rule("frame.pivot")

@@ -33,8 +33,9 @@ def notna(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("pd.isna", "pd.isnull", "pd.notna", "pd.notnull")
 def pd_isna(call: PandasCall, ctx: RuleContext) -> Value:
-    """pd.isna(s) / pd.notna(s), of a column or of the value a function given to apply or
-    map receives -> .is_null() / .is_not_null(), as s.isna().
+    """pd.isna(s) / pd.notna(s) -> .is_null() / .is_not_null(), as s.isna().
+
+    Handles: a column, or the value a function given to apply or map receives.
 
     Caveats: a frame, a list or a plain Python value stays pandas' (porter keeps such calls
     as written where no column is involved)."""

@@ -650,13 +650,26 @@ def resample_agg(call: PandasCall, ctx: RuleContext) -> Value:
     spec_value = call.args[0]
     spec = spec_value.const if isinstance(spec_value, Opaque) and spec_value.is_const else None
     if isinstance(spec, dict):
-        if any(isinstance(h, (list, tuple)) for h in spec.values()):
-            raise ctx.todo("a list of functions per column makes MultiIndex columns")
-        for column, how in spec.items():
+        # any list makes every output a (column, function) pair in pandas: flatten them all,
+        # as groupby.agg does
+        flattened = any(isinstance(h, list) for h in spec.values())
+        if any(isinstance(h, tuple) for h in spec.values()):
+            raise ctx.todo("functions given as a tuple")
+        pairs = []
+        for column, hows in spec.items():
             if not isinstance(column, str) or column in resampled.keys:
                 raise ctx.todo("aggregating the time column or a group key")
-            add(column, how, column)
-        return _binned(resampled, outputs, ctx, series=False, series_name=None)
+            for how in hows if isinstance(hows, list) else [hows]:
+                name = f"{column}_{how}" if flattened else column
+                add(column, how, name)
+                pairs.append((name, (column, str(how))))
+        result = _binned(resampled, outputs, ctx, series=False, series_name=None)
+        if flattened:
+            ctx.lower("pandas makes MultiIndex columns here; porter names them column_function",
+                      0.9)
+            assert isinstance(result, Frame)
+            return replace(result, column_pairs=tuple(pairs))
+        return result
     if isinstance(spec, list):
         columns = _targets(resampled)
         if columns is None or len(columns) != 1 or not resampled.single:

@@ -15,7 +15,7 @@ from porter.rules import rule
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_names, column_of, derive, select_columns,
 )
-from porter.translate.values import Column, Frame, Opaque, Parts, Scalar, Value
+from porter.translate.values import Accessor, Column, Frame, Opaque, Parts, Scalar, Value
 
 
 def frame_of(call: PandasCall) -> Frame:
@@ -155,7 +155,20 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     frame = frame_of(call)
     rows = call.args[0]
     cols = call.args[1] if len(call.args) > 1 else None
-    if isinstance(rows, Column):
+    from porter.rules.groupby import ExtremeLabels
+    if isinstance(rows, ExtremeLabels) and rows.source.rows == frame.rows \
+            and frame.labels_intact and not frame.index:
+        # df.loc[df.groupby(k)["c"].idxmin()]: each group's row of its first smallest value,
+        # in the order of the keys (the labels' Series is sorted by them)
+        keys = emit.names_arg(rows.keys)
+        position = emit.pl("int_range", emit.pl("len")).method("over", keys)
+        first = emit.col(rows.column).method(f"arg_{rows.how}").method("over", keys)
+        present = [emit.col(k).method("is_not_null") for k in rows.keys]
+        known = present[0] if len(present) == 1 else emit.pl("all_horizontal", *present)
+        code = frame.code.method("filter", known, emit.binop(position, "==", first)).method(
+            "sort", keys, maintain_order=True)
+        frame = derive(frame, code, same_rows=False)
+    elif isinstance(rows, Column):
         frame = derive(frame, frame.code.method("filter", ctx.expr(rows, frame)), same_rows=False)
     elif not (isinstance(rows, Opaque) and rows.const == slice(None)):
         raise Unsupported("rows chosen by index label: the index is not data in Polars")
@@ -166,6 +179,45 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(cols, Opaque) and isinstance(cols.const, list) and all(isinstance(c, str) for c in cols.const):
         return select_columns(frame, frame.code.method("select", *cols.const), cols.const)
     raise Unsupported("columns chosen by something other than names")
+
+
+@rule("frame.index")
+def frame_index(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.index -> the index key's dates, on a table indexed by one date key.
+
+    Handles: a resample, a pivot or an unstack by time; the DatetimeIndex methods (strftime,
+    year, month_name …) are Series.dt's: idx.strftime(fmt) is dt.to_string(fmt).
+
+    Caveats: any other index (row numbers, text keys, several keys) is a TODO: the index is not
+    data in Polars."""
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    if len(frame.index) != 1 or frame.dtype(frame.index[0]) != "datetime":
+        raise ctx.todo("the index is not data in Polars: keep the labels in a column "
+                       "(with_row_index) and use it")
+    key = frame.index[0]
+    return Accessor(Code(f"{frame.code.text}.index"), column=column_of(frame, key), kind="dt")
+
+
+@rule("frame.index.assign")
+def frame_index_assign(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.index = <a column of df's rows> -> the index key column replaced, under its name.
+
+    Handles: a table indexed by one key (df.index = df.index.strftime("%Y-%m")).
+
+    Caveats: other values (a list, another frame's column) and frames without an index key
+    are TODOs."""
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    value = call.args[0]
+    if len(frame.index) != 1 or not isinstance(value, Column):
+        raise ctx.todo("new row labels: keep them in a column and use it")
+    key = frame.index[0]
+    code = frame.code.method("with_columns", ctx.expr(value, frame).method("alias", key))
+    dtypes = tuple((c, t) for c, t in frame.dtypes if c != key)
+    if value.dtype is not None:
+        dtypes += ((key, value.dtype),)
+    return derive(frame, code, same_rows=True, dtypes=dtypes, grouped_rows=None)
 
 
 @rule("frame.head", "frame.tail")

@@ -72,6 +72,42 @@ def diff(call: PandasCall, ctx: RuleContext) -> Value:
     return derived_column(column, column.code.method("diff", *args), dtype=dtype)
 
 
+@rule("frame.diff")
+def frame_diff(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.diff(n) -> every column but the index keys .diff(n), as Series.diff on each.
+
+    Handles: a wide table (a pivot, an unstack) whose index keys stay; columns of numbers.
+    Caveats: text (pandas raises), True/False (a logical xor in pandas) and date columns (a
+    duration) are TODOs when the types are known; unknown types lower the confidence (0.9);
+    axis=1 is a TODO.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "periods", "axis", positional=1)
+    periods = call.const("periods", 0, 1)
+    if not isinstance(periods, int) or isinstance(periods, bool) or periods < 1:
+        raise Unsupported("zero, negative or computed periods")
+    if call.const("axis", None, 0) not in (0, "index", "rows"):
+        raise Unsupported("axis=1: the differences across columns")
+    args = [periods] if periods != 1 else []
+    if frame.columns is not None:
+        data = [c for c in frame.columns if c not in frame.index]
+        kinds = {frame.dtype(c) for c in data}
+        if kinds - {"int", "float"} - {None}:
+            raise Unsupported("a column of text, True/False or dates (pandas raises, takes a "
+                              "logical xor or makes durations)")
+        if None in kinds:
+            ctx.lower("some column types are not known: text fails in both, True/False is a "
+                      "logical xor in pandas", 0.9)
+        code = frame.code.method("with_columns", *(emit.col(c).method("diff", *args) for c in data))
+        return derive(frame, code, same_rows=True)
+    ctx.lower("the columns are not known: text fails in both, True/False is a logical xor in "
+              "pandas", 0.9)
+    others = emit.pl("all").method("exclude", *frame.index) if frame.index else emit.pl("all")
+    code = frame.code.method("with_columns", others.method("diff", *args))
+    return derive(frame, code, same_rows=True)
+
+
 @rule(*(f"series.{name}" for name in CUMULATIVE))
 def cumulative(call: PandasCall, ctx: RuleContext) -> Value:
     """Series.cumsum / cumprod / cummax / cummin -> Expr.cum_sum / cum_prod / cum_max / cum_min.

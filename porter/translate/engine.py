@@ -534,6 +534,9 @@ class _Walker:
             if self.has_next:
                 self.carried = [*self.carried, *line.leading_lines, *todo_lines]
                 return []
+            comments = [e for e in (*line.leading_lines, *todo_lines) if e.comment is not None]
+            if not indent and not comments:
+                return []  # the script's last statement: a module may end anywhere
             statements = [cst.parse_statement("pass\n")]
         last = len(statements) - 1
         for i, parsed in enumerate(statements):
@@ -940,6 +943,8 @@ class _Walker:
     def set_attr(self, target: cst.Attribute, value_node: cst.BaseExpression, env: dict[str, Value],
                  evaluator: Evaluator, indent: str) -> tuple[str | None, list[SiteDraft]] | None:
         owner, key = target.value, f"frame.set_{target.attr.value}"
+        if target.attr.value == "index":
+            key = "frame.index.assign"  # df.index = ... (not the set_index method)
         if isinstance(owner, cst.Attribute) and owner.attr.value == "columns" \
                 and target.attr.value == "name":
             owner, key = owner.value, "frame.columns.name"  # df.columns.name = None

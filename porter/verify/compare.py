@@ -352,9 +352,35 @@ def _different(left: pl.DataFrame, right: pl.DataFrame, matches: pl.DataFrame,
     columns = [c for c, ok in zip(matches.columns, matches.select(pl.all().all()).row(0)) if not ok]
     verb = "cell differs" if cells == 1 else "cells differ"
     detail = f"{cells} {verb} in {bad.len()} of {left.height} rows (columns: {', '.join(columns)})"
+    if _rounding_halves(left, right, matches, columns):
+        detail += (": each by one unit in the last decimal the column is rounded to, where a "
+                   "sum or mean of floats landed on a rounding half (x.xx5) and was rounded "
+                   "the other way (pandas and Polars add floats in different orders)")
     shown = tuple((int(i), left.row(int(i)), right.row(int(i))) for i in bad.head(ROWS_SHOWN))
     return Comparison("different", detail="; ".join([detail, *notes]), differing_cells=cells,
                       first_rows=shown)
+
+
+def _rounding_halves(left: pl.DataFrame, right: pl.DataFrame, matches: pl.DataFrame,
+                     columns: list[str]) -> bool:
+    """Whether every differing cell is a float of a rounded column (every value of it, on both
+    sides, has at most d decimals, d <= 6) that differs by exactly one unit in its d-th
+    decimal: the trace of floats added in another order, then rounded at a half."""
+    for name in columns:
+        i = matches.columns.index(name)
+        a, b = left.to_series(i), right.to_series(i)
+        if not (a.dtype.is_float() and b.dtype.is_float()):
+            return False
+        values = pl.concat([a, b]).drop_nulls().drop_nans()
+        decimals = next((d for d in range(7) if values.is_empty() or (
+            (values * 10 ** d - (values * 10 ** d).round()).abs().max() < 1e-6)), None)
+        if decimals is None:
+            return False
+        wrong = ~matches.to_series(i)
+        gaps = ((a.filter(wrong) - b.filter(wrong)).abs() * 10 ** decimals - 1).abs()
+        if gaps.is_empty() or gaps.null_count() or gaps.max() > 1e-6:
+            return False
+    return True
 
 
 def _different_unordered(left: pl.DataFrame, right: pl.DataFrame, rtol: float, atol: float,

@@ -18,8 +18,12 @@ def render(result: VerifyResult, original: str, converted: str) -> str:
         lines.append(f"  {'output':<34} {'kind':<8} {'status':<15} detail")
         for out in result.outputs:
             c = out.comparison
-            lines.append(f"  {_cell(out.name, 34):<34} {out.kind:<8} {c.status:<15} "
-                         f"{_cell(c.detail, 70)}")
+            # a long detail goes on under the row, whole (it says why outputs differ)
+            first, *rest = textwrap.wrap(c.detail, width=70) or [""]
+            lines.append(f"  {_cell(out.name, 34):<34} {out.kind:<8} {c.status:<15} {first}")
+            if rest:
+                lines += textwrap.wrap(" ".join(rest), width=96, initial_indent="      ",
+                                       subsequent_indent="      ")
             for row, a, b in c.first_rows[:3]:
                 lines.append(f"      row {row}: original  {_cell(a, 90)}")
                 lines.append(f"      {' ' * len(str(row))}     converted {_cell(b, 90)}")
