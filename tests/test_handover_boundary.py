@@ -780,3 +780,17 @@ def test_series_of_a_frame_sorted_after_their_last_use_stay_expressions():
         df = df.sort_values(["load", "berth"])
         """, "df")
     assert "TODO" not in text
+
+
+def test_list_columns_of_a_frame_handed_over_are_lists():
+    # a row loop kept on pandas tests isinstance(..., list): with numpy arrays it was False
+    both("""
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        df["parts"] = df["kind"].str.split("i")
+        seen = []
+        for i, row in df.iterrows():
+            df.at[i, "t2"] = row["crates"]
+            seen.append(isinstance(row["parts"], list) and "gra" in row["parts"])
+        records = df.to_dict("records")
+        """, "seen", "records")

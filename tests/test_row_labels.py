@@ -179,3 +179,24 @@ ascending = pd.DataFrame({"boat": ["Orm", "Lunde"], "crew": [3, 4]})
 result = df[df["cars"] > 2].sort_index(ascending=False).index.tolist()
 """)
     assert "sort_index(ascending=False)" in result.converted_text, result.converted_text
+
+
+def test_labels_after_an_inplace_sort_and_inplace_set_index(tmp_path, monkeypatch) -> None:
+    # the sort's original row numbers are read later; set_index / sort_index in place change
+    # the frame pandas holds (not a copy of it)
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "d.csv").write_text("id,k,v\n3,a,5\n1,b,-6\n2,a,7\n", encoding="utf-8")
+    source = '''
+import pandas as pd
+df = pd.read_csv("d.csv")
+df.set_index("id", inplace=True)
+df["v2"] = df["v"] * 2
+f = pd.read_csv("d.csv").set_index("id")
+f.sort_index(inplace=True)
+f["w"] = f["v"] - 1
+d5 = pd.read_csv("d.csv")
+d5.sort_values("v", inplace=True)
+d5["w"] = d5["v"] * 2
+labels = d5.index.tolist()
+'''
+    differential(source, "df", "f", "d5", "labels")

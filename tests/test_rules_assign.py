@@ -393,3 +393,31 @@ def test_series_rename_matches_pandas(source: str) -> None:
     frame = 'import pandas as pd\ndf = pd.DataFrame({"k": ["a", "b", "a", None], "v": [1.0, None, 3.0, 4.0]})\n'
     result = differential(frame + source + "\n")
     assert "TODO" not in result.converted_text
+
+
+def test_datetimes_as_text_are_written_as_pandas_writes_them(tmp_path) -> None:
+    # dates only when every time is midnight; whole seconds, milliseconds or microseconds as
+    # few as the column needs; a missing value stays missing (to_csv writes the same)
+    out = tmp_path / "times.csv"
+    source = f'''
+import pandas as pd
+df = pd.DataFrame({{"a": ["2024-01-31", None, "2024-02-01"],
+                   "b": ["2024-01-31 10:00:00.000", None, "2024-02-01 00:00:01.500"],
+                   "c": ["2024-01-31 10:00:00", "2024-01-31 11:00:00", None],
+                   "d": ["2024-01-31 10:00:00.123456", None, "2024-01-01 00:00:00.000000"]}})
+df["a"] = pd.to_datetime(df["a"], format="%Y-%m-%d")
+df["b"] = pd.to_datetime(df["b"], format="%Y-%m-%d %H:%M:%S.%f")
+df["c"] = pd.to_datetime(df["c"], format="%Y-%m-%d %H:%M:%S")
+df["d"] = pd.to_datetime(df["d"], format="%Y-%m-%d %H:%M:%S.%f")
+df["a_t"] = df["a"].astype(str)
+df["b_t"] = df["b"].astype(str)
+df["c_t"] = df["c"].astype(str)
+df["d_t"] = df["d"].astype(str)
+df.to_csv({str(out)!r}, index=False)
+result = df
+'''
+    converted = differential(source).converted_text
+    assert "TODO" not in converted
+    expected = out.read_text()
+    run(converted)
+    assert out.read_text() == expected

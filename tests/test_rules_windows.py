@@ -630,3 +630,25 @@ twice = wide.diff(2)
 '''
     converted = differential(source, "result", "twice").converted_text
     assert "TODO" not in converted
+
+
+@pytest.mark.parametrize("make", [
+    'df["prev"] = df["n"].shift(1)',
+    'df["prev"] = df["n"].diff()',
+    'df["prev"] = df.groupby("k")["n"].shift(1)',
+    'df["prev"] = df.groupby("k")["n"].diff()',
+])
+def test_an_int_column_given_missing_values_stays_float_after_they_are_dropped(make, tmp_path):
+    # pandas made it float64 with the missing values; dropping them keeps it float (5.0)
+    out = tmp_path / "prev.csv"
+    source = ('import pandas as pd\n'
+              'df = pd.DataFrame({"k": ["a", "b", "a", "b", "a"], "n": [5, 7, 2, 9, 4]})\n'
+              f'{make}\n'
+              'df = df.dropna(subset=["prev"])\n'
+              f'df.to_csv({str(out)!r}, index=False)\n'
+              'total = df["prev"].sum()\n')
+    differential(source, "df", "total")
+    expected = out.read_text()
+    run(convert(source).converted_text)
+    assert out.read_text() == expected
+    assert type(run(source)["total"]) is type(run(convert(source).converted_text)["total"])

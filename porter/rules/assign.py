@@ -22,7 +22,9 @@ from porter.translate.context import (
 )
 from porter.rules.strings import LIST_STR, expanded_columns
 from porter.translate.handover import makes_periods, orders_categories, text_categories
-from porter.translate.values import MISSING, Column, Frame, Opaque, PandasValue, Parts, Scalar, Value
+from porter.translate.values import (
+    MISSING, Column, Frame, Opaque, PandasValue, Parts, Scalar, Value, fresh_token,
+)
 
 
 def named(code: Code, name: str) -> tuple[Code | None, dict[str, Code]]:
@@ -577,7 +579,9 @@ def rename(call: PandasCall, ctx: RuleContext) -> Value:
     if any(not isinstance(k, str) for k in mapping.const):
         ctx.lower("a column named by a number in pandas is named by text in Polars", 0.9)
     dtypes = tuple((names.get(k, k), v) for k, v in frame.dtypes)
-    versions = tuple((names.get(k, k), v) for k, v in frame.versions)
+    # a renamed column is another column to a Series taken under its new name before
+    versions = tuple((k, v) for k, v in frame.versions if k not in names and k not in names.values()) \
+        + tuple((new, fresh_token()) for new in names.values())
     index = tuple(names.get(k, k) for k in frame.index)
     return _text_labelled(derive(frame, code, same_rows=True, columns=new_columns, dtypes=dtypes,
                                  versions=versions, index=index), names.values())
@@ -785,6 +789,10 @@ def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, st
             # True/False as pandas writes them; a missing value stays missing (pandas keeps
             # the NaN of a True/False column read with a blank: it is not "False")
             return code.method("replace_strict", {True: "True", False: "False"}), "str"
+    if kind == "str" and column.dtype == "datetime":
+        # "2024-01-31" when every time is midnight, as pandas writes the column
+        from porter.rules.io_options import datetime_text
+        return datetime_text(code), "str"  # type: ignore[return-value]
     if kind == "bool":
         if column.dtype == "str":
             return emit.binop(code, "!=", "").method("fill_null", True), "bool"

@@ -17,15 +17,33 @@ NA_CONSTANT = "PANDAS_NA_VALUES"
 CSV_DATETIMES_CONSTANT = "PANDAS_CSV_DATETIMES"
 CSV_DATETIMES_DEFINITION = """\
 # Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
-# midnight, no fraction of a second when none has one.
+# midnight, no fraction of a second when none has one, milliseconds when they are enough.
 PANDAS_CSV_DATETIMES = (
     pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
     .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
     .when((pl.selectors.datetime().dt.microsecond() == 0).all())
     .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .when((pl.selectors.datetime().dt.microsecond() % 1000 == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.3f"))
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 """
+
+
+def datetime_text(time: object) -> object:
+    """A datetime column's values as pandas' astype(str) and to_csv write them, decided from
+    the whole column: dates only when every time is midnight, then whole seconds,
+    milliseconds, or microseconds, as few as the values need (`time` is a Code)."""
+    from porter.emit import code as emit
+    t = time
+    every = (lambda test: test.method("all"))
+    return (emit.pl("when", every(emit.binop(t, "==", t.attr("dt").method("truncate", "1d"))))
+            .method("then", t.attr("dt").method("to_string", "%Y-%m-%d"))
+            .method("when", every(emit.binop(t.attr("dt").method("microsecond"), "==", 0)))
+            .method("then", t.attr("dt").method("to_string", "%Y-%m-%d %H:%M:%S"))
+            .method("when", every(emit.binop(emit.binop(t.attr("dt").method("microsecond"), "%", 1000), "==", 0)))
+            .method("then", t.attr("dt").method("to_string", "%Y-%m-%d %H:%M:%S%.3f"))
+            .method("otherwise", t.attr("dt").method("to_string", "%Y-%m-%d %H:%M:%S%.6f")))
 
 # An expression, defined once at the top of a converted script, that writes every duration
 # column the way pandas' to_csv writes a timedelta column (decided per column from the data).

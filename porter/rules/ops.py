@@ -86,6 +86,10 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
             code = code.method("fill_nan", None)
         dtype = "float"
     elif op == "//":
+        if rtype == "float" or isinstance(right, Opaque) and isinstance(right.const, float) \
+                and not right.const.is_integer():
+            ctx.lower("floor division by a fraction: pandas floors the exact quotient (1.0 // 0.1 "
+                      "is 9.0), Polars the rounded one (10.0), which can differ by one", 0.9)
         if _is_nonzero_constant(right):
             code = emit.binop(lcode, "//", rcode)
             dtype = ltype if ltype in NUMERIC else None

@@ -50,7 +50,16 @@ def shift(call: PandasCall, ctx: RuleContext) -> Value:
     kwargs = {}
     if call.has("fill_value"):
         kwargs["fill_value"] = ctx.expr(call.arg("fill_value"), column.frame)
-    return derived_column(column, column.code.method("shift", periods, **kwargs), dtype=column.dtype)
+    code, dtype = column.code.method("shift", periods, **kwargs), column.dtype
+    if dtype == "int" and periods != 0 and not kwargs:
+        code, dtype = _as_float(code), "float"
+    return derived_column(column, code, dtype=dtype)
+
+
+def _as_float(code: Code) -> Code:
+    """An int column a shift or diff gives missing values: float64 in pandas, whatever rows
+    are left later (a filter that drops the missing rows keeps it float: 5.0, not 5)."""
+    return code.method("cast", emit.atom("pl.Float64"))
 
 
 @rule("series.diff")
@@ -69,7 +78,10 @@ def diff(call: PandasCall, ctx: RuleContext) -> Value:
     args = [periods] if periods != 1 else []
     # the difference of dates is a duration (pandas' timedelta64), which porter keeps untyped
     dtype = None if column.dtype in ("datetime", "date") else column.dtype
-    return derived_column(column, column.code.method("diff", *args), dtype=dtype)
+    code = column.code.method("diff", *args)
+    if dtype == "int":
+        code, dtype = _as_float(code), "float"
+    return derived_column(column, code, dtype=dtype)
 
 
 @rule("frame.diff")
@@ -99,8 +111,11 @@ def frame_diff(call: PandasCall, ctx: RuleContext) -> Value:
         if None in kinds:
             ctx.lower("some column types are not known: text fails in both, True/False is a "
                       "logical xor in pandas", 0.9)
-        code = frame.code.method("with_columns", *(emit.col(c).method("diff", *args) for c in data))
-        return derive(frame, code, same_rows=True)
+        code = frame.code.method("with_columns", *(
+            _as_float(emit.col(c).method("diff", *args)) if frame.dtype(c) == "int"
+            else emit.col(c).method("diff", *args) for c in data))
+        dtypes = tuple((c, "float" if t == "int" and c in data else t) for c, t in frame.dtypes)
+        return derive(frame, code, same_rows=True, dtypes=dtypes)
     ctx.lower("the columns are not known: text fails in both, True/False is a logical xor in "
               "pandas", 0.9)
     others = emit.pl("all").method("exclude", *frame.index) if frame.index else emit.pl("all")
@@ -354,6 +369,8 @@ def group_shift(call: PandasCall, ctx: RuleContext) -> Value:
     expr = column.code.method(call.name, *args, **kwargs)
     # pandas writes fill_value on the rows of a missing key too
     dtype = None if call.name == "diff" and column.dtype in ("datetime", "date") else column.dtype
+    if dtype == "int" and (call.name == "diff" or periods != 0 and not kwargs):
+        expr, dtype = _as_float(expr), "float"
     return derived_column(column, _window(grouped, expr, kwargs.get("fill_value")), dtype=dtype)
 
 

@@ -204,6 +204,11 @@ def check_same_rows(column: Column, frame: Frame) -> None:
             raise Unsupported(
                 f"column {name!r} was overwritten after this Series was taken from it"
             )
+        if frame.columns is not None and name not in frame.columns:
+            # a Series kept as a frame of its own (the same rows) met a column of the frame
+            # it came from: they are two frames to Polars
+            raise Unsupported(f"the Series reads column {name!r}, which this frame does not "
+                              "have (pandas aligns the two on the index)")
 
 
 def derive(frame: Frame, code: Code, *, same_rows: bool, **changes: Any) -> Frame:

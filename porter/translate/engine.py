@@ -799,14 +799,14 @@ class _Walker:
             return None
         receiver_node = expr.func.value
         receiver = evaluator.eval(receiver_node)
-        if not isinstance(receiver, (Frame, Column)):
+        if not isinstance(receiver, (Frame, Column, Indexed)):
             return None
         args = [a for a in expr.args if a is not inplace[0]]
         if args:
             args[-1] = args[-1].with_changes(comma=cst.MaybeSentinel.DEFAULT)
         call = expr.with_changes(args=args)
         value = evaluator.eval(call)
-        if isinstance(receiver_node, cst.Name) and isinstance(value, (Frame, PandasValue)):
+        if isinstance(receiver_node, cst.Name) and isinstance(value, (Frame, PandasValue, Indexed)):
             return self.bind(receiver_node.value, value, env, indent)
         if isinstance(receiver_node, cst.Subscript) and isinstance(value, Column):
             # pandas 3 (copy-on-write): the method changes a copy of the column, never the frame
@@ -966,9 +966,13 @@ class _Walker:
         here = self.services.statement_lines[1]
         for held, value in env.items():
             if isinstance(value, Column) and value.binding is not None \
-                    and value.frame.code.text == name and value.frame.rows != frame.rows \
+                    and value.frame.code.text == name \
+                    and (value.frame.rows != frame.rows
+                         or any(frame.version(c) != v for c, v in value.versions)
+                         or value.frame.columns != frame.columns) \
                     and (self.loop_depth or self.function is not None
                          or any(line > here for line in self.services.name_lines.get(held, ()))):
+                # other rows, a column it reads overwritten, or the columns renamed
                 self.services.stale_series.add(value.binding)
 
     def made_by_pandas(self, name: str, expr: cst.BaseExpression, env: dict[str, Value],
@@ -1000,7 +1004,10 @@ class _Walker:
             assert isinstance(frame, Frame)
             lines.append(f"{n} = {handover.to_pandas(frame).text}")
             env[n] = PandasValue(emit.atom(n), frame=replace(frame, code=emit.atom(n), sites=()))
-        lines.append(f"{name} = {self.services.code_for(expr)}")
+        if _inplace_call_of(expr) == name:  # df.sort_values(..., inplace=True) as written
+            lines.append(self.services.code_for(expr))
+        else:
+            lines.append(f"{name} = {self.services.code_for(expr)}")
         env[name] = PandasValue(emit.atom(name))
         # one marker for the statement, not one per call in it: each call is pandas' own
         site = SiteDraft("frame.labels", "handover", "todo", 0.0,
@@ -1038,7 +1045,8 @@ class _Walker:
             and isinstance(small.targets[0].target, cst.Name) \
             and small.targets[0].target.value == name else None
         binds_name = isinstance(small, cst.Assign) and len(small.targets) == 1 \
-            and isinstance(small.targets[0].target, cst.Name) and small.targets[0].target.value == name
+            and isinstance(small.targets[0].target, cst.Name) and small.targets[0].target.value == name \
+            or isinstance(small, cst.Expr) and _inplace_call_of(small.value) == name
         frame_of = value if isinstance(value, Frame) else value.frame if isinstance(value, Column) else None
         if frame_of is not None and binds_name and not frame_of.labels_intact and not frame_of.index \
                 and self.statement_key in self.services.labels_needed:
@@ -1126,6 +1134,15 @@ class _Walker:
                                  f"`{name}` is changed in place, or read after its text's frame "
                                  "changed: pandas computes it", *self.services.statement_lines)
                 return emit.layout_chain(code, indent, f"{name} = "), [*value.sites, site]
+        elif isinstance(value, Indexed) and not value.grouped and self.changed_later(name):
+            # changed in place later (df["c"] = ..., df.sort_index(inplace=True)): pandas
+            # holds it, with its labels
+            env[name] = PandasValue(emit.atom(name))
+            site = SiteDraft("frame.set_index", "handover", "todo", 0.0,
+                             f"`{name}` keeps its row labels and is changed in place later: "
+                             "pandas holds it; keep the key as a column and port the changes",
+                             *self.services.statement_lines)
+            return emit.layout_chain(value.code, indent, f"{name} = "), [*value.sites, site]
         elif isinstance(value, Indexed) and not value.grouped:
             # `df = df.set_index("ts")`: the name holds the Polars frame (the column kept);
             # pandas code porter does not port gets it with its labels set again
@@ -1222,6 +1239,17 @@ def _rewritten_change(target: cst.BaseExpression, value: Value, stmt: cst.BaseSm
             and isinstance(target, cst.Attribute) and target.attr.value == "name":
         owner = owner.value  # df.columns.name = None
     return isinstance(owner, cst.Name) and isinstance(stmt, cst.Assign)
+
+
+def _inplace_call_of(expr: cst.BaseExpression) -> str | None:
+    """The name `name.method(..., inplace=True)` changes, or None for other expressions."""
+    if not (isinstance(expr, cst.Call) and isinstance(expr.func, cst.Attribute)
+            and isinstance(expr.func.value, cst.Name)):
+        return None
+    if any(a.keyword is not None and a.keyword.value == "inplace" and isinstance(a.value, cst.Name)
+           and a.value.value == "True" for a in expr.args):
+        return expr.func.value.value
+    return None
 
 
 def _mutating_calls(stmt: cst.CSTNode) -> list[tuple[str, str]]:

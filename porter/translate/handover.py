@@ -182,15 +182,20 @@ def _as_pandas_made_them(code: Code, dtypes: tuple[tuple[str, str], ...],
                          columns: tuple[str, ...] | None) -> Code:
     """A collected frame's columns as pandas holds them where Polars hands them over otherwise:
     dates are `datetime.date` objects (`dt.date`; Polars gives datetime64, so a function given
-    them would see Timestamps), and a missing True/False is NaN (Polars gives None, which is
-    false where NaN is true)."""
+    them would see Timestamps), lists are lists (Polars gives numpy arrays), and a missing
+    True/False is NaN (Polars gives None, which is false where NaN is true)."""
     flags = [c for c, t in dtypes if t == "bool"]  # fillna passes over a column not there
     if flags:
         code = code.method("fillna", {c: emit.atom('float("nan")') for c in flags})
     dates = [c for c, t in dtypes if t == "date" and columns is not None and c in columns]
-    if dates:
+    # str.split's lists: Polars hands each over as a numpy array, pandas holds a list (and
+    # NaN for a missing one)
+    lists = [c for c, t in dtypes if t.startswith("list[") and (columns is None or c in columns)]
+    if dates or lists:
         made = {c: emit.atom(f"lambda frame: frame[{emit.lit(c).text}].dt.date") for c in dates}
-        if all(c.isidentifier() and not keyword.iskeyword(c) for c in dates):
+        made |= {c: emit.atom(f"lambda frame: frame[{emit.lit(c).text}].map(lambda v: "
+                              "float(\"nan\") if v is None else list(v))") for c in lists}
+        if all(c.isidentifier() and not keyword.iskeyword(c) for c in made):
             code = code.method("assign", **made)
         else:
             code = code.method("assign", emit.atom(f"**{emit.render(made)}"))

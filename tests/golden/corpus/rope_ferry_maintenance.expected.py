@@ -14,12 +14,14 @@ PANDAS_NA_VALUES = [
 ]
 
 # Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
-# midnight, no fraction of a second when none has one.
+# midnight, no fraction of a second when none has one, milliseconds when they are enough.
 PANDAS_CSV_DATETIMES = (
     pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
     .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
     .when((pl.selectors.datetime().dt.microsecond() == 0).all())
     .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .when((pl.selectors.datetime().dt.microsecond() % 1000 == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.3f"))
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
