@@ -794,3 +794,16 @@ def test_list_columns_of_a_frame_handed_over_are_lists():
             seen.append(isinstance(row["parts"], list) and "gra" in row["parts"])
         records = df.to_dict("records")
         """, "seen", "records")
+
+
+def test_series_kept_in_names_go_to_pandas_before_their_frame():
+    # a statement kept on pandas reads a mask and a duration kept in names: pandas computes
+    # them from the Polars frame first (an expression of a frame pandas now holds would fail)
+    both("""
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        heavy = df["tons"] > 2
+        df.loc[heavy, "crates"] = df.loc[heavy, "crates"] * 2
+        per = df["tons"] / df["crates"]
+        df.insert(0, "per", per)
+        """, "df")

@@ -421,3 +421,20 @@ result = df
     expected = out.read_text()
     run(converted)
     assert out.read_text() == expected
+
+
+def test_float_nan_written_under_a_mask_is_a_missing_value(tmp_path) -> None:
+    # float("nan") is NaN, as np.nan is: missing in pandas (an empty field when written)
+    out = tmp_path / "r.csv"
+    source = f'''
+import pandas as pd
+df = pd.DataFrame({{"k": ["a", "b", "a"], "v": [5, -6, 7]}})
+df.loc[df["v"] < 0, "v"] = float("nan")
+df["w"] = float("inf")
+gone = df["v"].isna().sum()
+df.to_csv({str(out)!r}, index=False)
+'''
+    differential(source, "df", "gone")
+    expected = out.read_text()
+    run(convert(source).converted_text)
+    assert out.read_text() == expected

@@ -864,3 +864,45 @@ def test_group_extreme_labels_after_a_sort_stay_pandas() -> None:
         'df = df.sort_values("z")\nresult = df.loc[df.groupby("st")["t"].idxmin()]\n')
     result = differential(source)
     assert "TODO" in result.converted_text
+
+
+@pytest.mark.parametrize("expr", [
+    'df.groupby("st").ngroups',
+    'df.groupby(["st", "z"]).ngroups',
+    'df.groupby("st", dropna=False).ngroups',
+    'df.groupby("st")["t"].ngroups',
+    'sorted(df.groupby("st").groups.keys())',
+])
+def test_group_counts_match_pandas(expr: str) -> None:
+    differential(EXTREMES + f"result = {expr}\nprint({expr})\n")
+
+
+def test_a_groupby_kept_in_a_name_sees_the_frame_changed_in_place() -> None:
+    # pandas' GroupBy holds the frame object, which df["x"] = ... changes
+    source = '''
+import pandas as pd
+df = pd.DataFrame({"k": ["a", "b", "a", None], "x": [1, 2, 3, 4]})
+g = df.groupby("k")
+df["x"] = df["x"] * 100
+s = g["x"].sum()
+df["old_mean"] = g["x"].transform("mean")
+'''
+    result = differential(source, "df", "s")
+    assert "TODO" not in result.converted_text
+
+
+def test_describe_and_pivot_by_dates_or_flags_stay_pandas() -> None:
+    # pandas describes the datetime column too, and labels pivoted columns by Timestamps and
+    # True/False: kept on pandas, the values are pandas' own
+    source = '''
+import pandas as pd
+df = pd.DataFrame({"n": [3, 5, 4], "day": ["2024-01-31", "2024-02-29", "2024-03-01"],
+                   "k": ["a", "b", "a"], "f": [True, False, True]})
+df["day"] = pd.to_datetime(df["day"], format="%Y-%m-%d")
+d = df.describe()
+p = df.pivot_table(index="k", columns="day", values="n", aggfunc="sum")
+q = df.pivot_table(index="k", columns="f", values="n", aggfunc="sum")
+'''
+    result = differential(source, "d", "p", "q")
+    keys = {s.key for s in result.sites if s.status == "todo"}
+    assert {"frame.describe", "frame.pivot_table"} <= keys

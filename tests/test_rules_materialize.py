@@ -136,3 +136,10 @@ result = df.to_numpy()
 numbers = df[["n"]].values
 """, "result", "numbers")
     assert ".to_pandas().to_numpy()" in result.converted_text
+
+
+def test_tolist_of_a_list_column_gives_lists() -> None:
+    source = ('import pandas as pd\ndf = pd.DataFrame({"route": ["a;b", "c", None, ""]})\n'
+              'result = df["route"].str.split(";").tolist()\n'
+              'shown = repr(result)\n')
+    differential(source, "shown")

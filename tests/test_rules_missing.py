@@ -10,7 +10,7 @@ from __future__ import annotations
 import pytest
 
 from rule_checks import check_ports, check_todo, check_unchanged
-from support import convert, differential
+from support import convert, differential, run
 
 # NaN and None together in floats and in text, a column without missing values, unicode.
 FRAME = """\
@@ -318,3 +318,17 @@ result = df
 '''
     converted = differential(source, "result", "plain").converted_text
     assert "TODO" not in converted
+
+
+def test_frame_fillna_with_unknown_columns_fills_text_as_pandas_writes_it(tmp_path, monkeypatch):
+    # read without --data: porter does not know which columns hold text; pandas writes the
+    # number into them too (an object column), which reads the same in the written file
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "d.csv").write_text("id,k,name,v,w\n1,a,x,5,1.5\n2,b,,-6,\n3,a,zed,7,2.5\n"
+                                    "4,,q,3,0\n", encoding="utf-8")
+    source = ('import pandas as pd\ndf = pd.read_csv("d.csv")\nf = df.fillna(0)\n'
+              'f.to_csv("f.csv", index=False)\n')
+    run(source)
+    expected = (tmp_path / "f.csv").read_text()
+    run(convert(source).converted_text)
+    assert (tmp_path / "f.csv").read_text() == expected

@@ -347,3 +347,15 @@ def test_duplicated_matches_pandas(snippet: str) -> None:
 def test_duplicated_of_a_whole_frame_needs_its_columns() -> None:
     text = check_ports(FRAME + 'r = df.duplicated()\n', "pl.struct(pl.col(\"k\"), pl.col(\"v\"), pl.col(\"n\"))")
     assert ".is_first_distinct().not_()" in text
+
+
+def test_a_series_reset_without_a_name_has_the_integer_label_0() -> None:
+    # pandas labels the values column with the integer 0: read by [0], listed as 0
+    source = '''
+import pandas as pd
+df = pd.DataFrame({"k": ["a", "b", "a", None], "v": [1, 2, 3, 4]})
+d3 = df.groupby("k").size().reset_index()
+top = d3[0].max()
+cols = d3.columns.tolist()
+'''
+    differential(source, "top", "cols")

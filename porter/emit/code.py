@@ -257,9 +257,9 @@ def _split_argument(arg: str, indent: str, width: int, min_steps: int = 2) -> li
     keyword = f"{parsed.keyword.value}=" if parsed.keyword is not None else ""
     parts = _chain_parts(parsed, min_steps)
     if parts is None:
-        one = _chain_parts(parsed, 1)
-        if one is not None and len(indent) + len(one[0]) > width:
-            parts = one  # f([...]).collect(): the call before the step is what is too long
+        # f([...]).collect(), pl.when(...).then(...): broken before the one step, since the
+        # whole does not fit
+        parts = _chain_parts(parsed, 1)
     if parts is None:  # f(a, b) on a plain name (print, pl.concat): one argument per line
         call = _call_parts("", arg[len(keyword):])
         whole = _split_call(arg[len(keyword):], keyword, ",") \

@@ -344,8 +344,9 @@ def strftime(call: PandasCall, ctx: RuleContext) -> Value:
     return _result(column, _dt(column).method("to_string", fmt), "str")
 
 
-def parse_format(fmt: str, ctx: RuleContext) -> str:
-    """A pandas (strptime) format as a Polars (chrono) format, or a TODO."""
+def parse_format(fmt: str, ctx: RuleContext, *, years_fixed: bool = False) -> str:
+    """A pandas (strptime) format as a Polars (chrono) format, or a TODO (`years_fixed`: the
+    caller moves chrono's 2069 of %y to pandas' 1969)."""
     if fmt in ("mixed", "ISO8601"):
         raise ctx.todo(f"format={fmt!r}: list the formats the data holds and coalesce "
                        "str.to_datetime(f, strict=False) over them")
@@ -353,7 +354,7 @@ def parse_format(fmt: str, ctx: RuleContext) -> str:
     if other:
         raise ctx.todo(f"directives {', '.join('%' + d for d in other)} are not checked to "
                        "parse the same in Polars")
-    if "%y" in fmt:
+    if "%y" in fmt and not years_fixed:
         ctx.lower("%y: pandas reads 69 as 1969, Polars as 2069", 0.95)
     if "%f" in fmt:
         if ".%f" not in fmt or fmt.count("%f") > 1:
@@ -368,8 +369,9 @@ def parse_format(fmt: str, ctx: RuleContext) -> str:
 def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
     """pd.to_datetime(col, format=, errors=) -> col.str.to_datetime(format, strict=...).
 
-    Handles: errors="coerce" (strict=False gives null where pandas gives NaT); the explicit
-    format; a column that already holds datetimes is kept as it is.
+    Handles: errors="coerce" (strict=False gives null where pandas gives NaT; a value with
+    leading blanks is NaT too, as pandas does not match it); the explicit format, %y's 69 read
+    as 1969 as Python reads it; a column that already holds datetimes is kept as it is.
     Caveats: without a format both guess it from the first value, but pandas reads 05/03/2024
     month first and Polars day first (0.7); with errors="raise", "" and "NaT" are NaT in pandas
     and an error in Polars (0.95); a scalar, a list or a frame stays on pandas.
@@ -402,7 +404,15 @@ def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
     else:
         if not isinstance(fmt, str):
             raise ctx.todo("the format must be text")
-        code = text.method("to_datetime", parse_format(fmt, ctx), **options)
+        code = text.method("to_datetime", parse_format(fmt, ctx, years_fixed=True), **options)
+        if "%y" in fmt:
+            # Python reads the two-digit year 69 as 1969, chrono as 2069 (the others agree)
+            code = emit.when(emit.binop(code.attr("dt").method("year"), "==", 2069),
+                             code.attr("dt").method("offset_by", "-100y"), code)
+        if errors == "coerce" and not fmt[:1].isspace():
+            # pandas does not match a value with leading blanks to the format (NaT); Polars
+            # skips them
+            code = emit.when(emit.unary("~", text.method("contains", r"^\s")), code)
     return derived_column(column, code, dtype="datetime")
 
 

@@ -551,6 +551,13 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
     if frame.columns is not None and len(frame.dtypes) == len(frame.columns) and not any(
             t in ("int", "float") for _, t in frame.dtypes):
         raise Unsupported("describe of a frame without numeric columns describes text in pandas")
+    if any(t == "datetime" for _, t in frame.dtypes):  # (dates are objects: left out)
+        raise Unsupported("pandas describes datetime columns too (mean, min, quartiles, max as "
+                          "timestamps, std missing), in another row order")
+    if ctx.datetimes_possible and not (frame.columns is not None
+                                       and len(frame.dtypes) == len(frame.columns)):
+        ctx.lower("a datetime column porter does not know of would be described by pandas too",
+                  0.85)
     numeric_cols = tuple(c for c in frame.columns or () if frame.dtype(c) in ("int", "float")) or None
     columns = ("index", *numeric_cols) if numeric_cols else None
     return Frame(code, columns=columns, index=("index",), labels_intact=False, index_unnamed=True)
@@ -644,6 +651,9 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("values given as a list: pandas keeps two levels of column labels")
     if not isinstance(columns, str) or not isinstance(values, str):
         raise Unsupported("one values column and one columns key only")
+    if frame.dtype(columns) in ("datetime", "date", "bool"):
+        raise Unsupported(f"a {frame.dtype(columns)} columns key: pandas labels the new columns "
+                          "with its values (Timestamps, True/False), Polars with their text")
     keys = [index] if isinstance(index, str) else list(index or [])
     if not keys or not all(isinstance(k, str) for k in keys):
         raise Unsupported("a pivot without index keys")
@@ -679,6 +689,22 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     int_labels = tuple(keys) if frame.dtype(columns) == "int" else None
     return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False,
                  int_labels_except=int_labels)
+
+
+@rule("groupby.ngroups")
+def ngroups(call: PandasCall, ctx: RuleContext) -> Value:
+    """g.ngroups -> the number of distinct keys (rows with a missing key left out, as with
+    dropna=True), collected as a Python int."""
+    grouped = grouped_of(call)
+    if grouped.pandas is not None or grouped.prepared:
+        raise Unsupported("a groupby porter did not make from a frame's columns")
+    keys = list(grouped.keys)
+    frame = grouped.frame.code
+    if grouped.dropna:
+        frame = frame.method("drop_nulls", emit.names_arg(keys))
+    distinct = emit.col(keys[0]) if len(keys) == 1 else emit.pl("struct", keys)
+    code = frame.method("select", distinct.method("n_unique")).method("collect").method("item")
+    return Scalar(code, pytype="int")
 
 
 @dataclass(frozen=True)

@@ -34,6 +34,11 @@ def series_values(call: PandasCall, ctx: RuleContext) -> Value:
         if call.name in ("tolist", "to_list"):
             return Scalar(code.method("tolist"), pytype="list")
         return Scalar(code.method("to_numpy"), pytype="array")
+    if column.dtype is not None and column.dtype.startswith("list[") \
+            and call.name in ("tolist", "to_list"):
+        # lists as lists (to_numpy would give numpy arrays), a missing one nan as in pandas
+        return Scalar(Code(f"[float(\"nan\") if v is None else v for v in "
+                           f"{_series(column).method('to_list').text}]"), pytype="list")
     if column.dtype not in ("int", "float", "bool"):
         ctx.lower("a missing text value is None here, nan in pandas", 0.95)
     code = _series(column).method("to_numpy")

@@ -234,6 +234,11 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
         elif others:
             raise Unsupported(f"pandas also fills {', '.join(others)} with {value.const!r}, "
                               "making object columns of mixed types; Polars cannot mix them")
+        elif not complete and _kind_of(value.const) == "number":
+            # text columns porter does not know of (a frame back from pandas): pandas writes
+            # the number into them too; the string selector finds them when the plan runs
+            code = code.method("with_columns", emit.atom("pl.selectors.string()").method(
+                "fill_null", str(value.const)))
     else:
         code = frame.code.method("with_columns", emit.atom("pl.selectors.numeric()").method(
             "fill_null", fill_value(value, frame, ctx)))

@@ -283,7 +283,9 @@ def series_reset_index(call: PandasCall, ctx: RuleContext) -> Value:
     code = series_frame(renamed)
     dtypes = [(k, column.frame.dtype(k)) for k in column.frame.index] + [(value_name, column.dtype)]
     return Frame(code, columns=(*column.frame.index, value_name), labels_intact=True,
-                 dtypes=tuple((c, t) for c, t in dtypes if t is not None))
+                 dtypes=tuple((c, t) for c, t in dtypes if t is not None),
+                 # pandas labels the values column with the integer 0 (handed over so)
+                 number_labels=("0",) if column.name is None and name is None else ())
 
 
 @rule("series.isin")

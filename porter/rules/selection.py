@@ -282,6 +282,15 @@ def columns(call: PandasCall, ctx: RuleContext) -> Value:
             items = ", ".join(f"({emit.lit(pairs[n][0]).text}, {emit.lit(pairs[n][1]).text})"
                               for n in names)
             return Scalar(emit.atom(f"[{items}]"), pytype="list", of=frame)
+    if frame.number_labels:
+        # pandas labels these columns with integers (a Series reset without a name: 0)
+        if frame.columns is None:
+            raise ctx.todo("pandas labels some columns with integers here, and porter does not "
+                           "know the others")
+        names = [c for c in frame.columns if c not in frame.index]
+        items = ", ".join(str(int(n)) if n in frame.number_labels else emit.lit(n).text
+                          for n in names)
+        return Scalar(emit.atom(f"[{items}]"), pytype="list", of=frame)
     return Scalar(data_columns(frame).method("collect_schema").method("names"),
                   pytype="list[str]", of=frame)
 

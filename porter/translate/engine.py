@@ -687,6 +687,7 @@ class _Walker:
             kind = "frame" if isinstance(value, Frame) else "series"
             if isinstance(value, Frame):
                 self.note_handed_over(name, value)
+                lines += self.hand_over_expressions_of(name, env, stmt)
             code = handover.to_pandas(value)
             if kind == "series" and not value.frame.index:
                 # a Series from Polars shares Arrow's read-only memory, and pandas writes into
@@ -910,6 +911,7 @@ class _Walker:
         if not isinstance(result, PandasValue):
             return self.bind(name, result, env, indent)
         statement = self.current_small
+        first = self.hand_over_expressions_of(name, env, statement)
         intervals = any(site.key in INTERVAL_MAKERS for site in result.sites) or any(
             site.key == "frame.setitem" and FRAME_STAYS_PANDAS in site.message
             for site in result.sites)  # values Polars has no type for (rules/assign.py)
@@ -931,7 +933,22 @@ class _Walker:
                          message="kept on pandas with the statement it is in")
                  if s.status == "converted" else s for s in result.sites]
         self.note_handed_over(name, frame)
-        return f"{name} = {handover.to_pandas(frame).text}\n{original}", sites
+        return "\n".join([*first, f"{name} = {handover.to_pandas(frame).text}", original]), sites
+
+    def hand_over_expressions_of(self, name: str, env: dict[str, Value],
+                                 stmt: cst.CSTNode) -> list[str]:
+        """Series kept in names as expressions of the frame `name` (`m = df["a"] > 0`) that
+        the statement reads: pandas computes them first, from the Polars frame, in their own
+        names; once `name` holds the pandas frame an expression of it has nothing to run on."""
+        read = set(_names_read(self.services.code_for(stmt)))
+        lines = []
+        for held, value in list(env.items()):
+            if held in read and held != name and isinstance(value, Column) \
+                    and value.binding is not None and value.frame.code.text == name \
+                    and isinstance(env.get(name), Frame):
+                lines.append(f"{held} = {handover.to_pandas(value).text}")
+                env[held] = PandasValue(emit.atom(held))
+        return lines
 
     def note_handed_over(self, name: str, frame: Frame) -> None:
         """A frame handed to pandas in its own name after a filter or sort: pandas numbers its
@@ -1002,6 +1019,7 @@ class _Walker:
         for n in frames:
             frame = env[n]
             assert isinstance(frame, Frame)
+            lines += self.hand_over_expressions_of(n, env, expr)
             lines.append(f"{n} = {handover.to_pandas(frame).text}")
             env[n] = PandasValue(emit.atom(n), frame=replace(frame, code=emit.atom(n), sites=()))
         if _inplace_call_of(expr) == name:  # df.sort_values(..., inplace=True) as written
@@ -1162,6 +1180,12 @@ class _Walker:
             kept = replace(value.frame, code=emit.atom(name), sites=(), binding=self.statement_key)
             env[name] = replace(value, code=handover.to_pandas(kept).method("set_index", value.key),
                                 frame=kept, sites=())
+        elif isinstance(value, Grouped) and value.frame.code.text.isidentifier() \
+                and not value.prepared and self.changed_later(value.frame.code.text):
+            # pandas' GroupBy holds the frame object, which df["c"] = ... changes in place
+            # later: each use groups the frame as it is then, so nothing is bound here
+            env[name] = replace(value, sites=(), live=True)
+            return "", list(value.sites)
         elif isinstance(value, Grouped):
             code = grouping_code(value)
             env[name] = replace(value, code=emit.atom(name), prepared=True, sites=())

@@ -159,12 +159,29 @@ class Evaluator:
             value = self.env[node.value]
             if isinstance(value, Parts) and value.binding is not None:
                 self.note_stale_parts(value)
+            if isinstance(value, Grouped) and value.live:
+                return self.live_grouping(value)
             return value
         if node.value in ("True", "False", "None"):
             return self.opaque(node, {"True": True, "False": False, "None": None}[node.value])
         if node.value in _TYPE_NAMES:
             return self.opaque(node, _TYPE_NAMES[node.value])
         return self.opaque(node)
+
+    def live_grouping(self, grouped: Grouped) -> Value:
+        """A groupby kept in a name whose frame was changed in place since: the frame as the
+        name holds it now (pandas' GroupBy holds the same object)."""
+        frame_name = grouped.frame.code.text
+        current = self.env.get(frame_name)
+        if isinstance(current, Frame) and current.rows == grouped.frame.rows:
+            return replace(grouped, frame=current, code=current.code, live=False)
+        if isinstance(current, PandasValue):
+            options = {k: v for k, v in (("sort", grouped.sort), ("dropna", grouped.dropna),
+                                         ("as_index", grouped.as_index)) if v is not True}
+            keys = list(grouped.keys) if grouped.key_list else emit.names_arg(grouped.keys)
+            return PandasValue(emit.atom(frame_name).method("groupby", keys, **options))
+        return self.todo("groupby", PandasCall(grouped, "groupby"), cst.Name(frame_name),
+                         "the frame grouped was given other rows since")
 
     def note_stale_parts(self, parts: Parts) -> None:
         """str.extract's frame kept in a name, read where its frame's name holds other rows or
@@ -295,6 +312,9 @@ class Evaluator:
             if name == "index":
                 self.note_labels_read(receiver.frame)
             return self.dispatch(f"series.{name}", PandasCall(receiver, name, node=node), node)
+        if isinstance(receiver, Grouped) and name in _GROUPBY_PROPERTIES:
+            # properties, not methods: read where they are (print(g.ngroups))
+            return self.dispatch(f"groupby.{name}", PandasCall(receiver, name, node=node), node)
         if isinstance(receiver, Grouped):
             # pandas looks a column up by attribute only when no method has the name
             # (g.size() with a "size" column is the method)
@@ -326,7 +346,8 @@ class Evaluator:
         if isinstance(receiver, (Column, Frame, Grouped, Accessor, Indexer, Resampled, Indexed)):
             return self.todo(f"{_prefix(receiver)}.{name}", PandasCall(receiver, name, node=node),
                              node, "porter has no rule for this attribute")
-        if isinstance(receiver, Scalar) and receiver.pytype == "list[str]":
+        if isinstance(receiver, Scalar) and (receiver.pytype == "list[str]" or
+                                             receiver.pytype == "list" and receiver.of is not None):
             return self.column_names_attribute(receiver, name, node)
         if isinstance(receiver, Scalar) and receiver.pytype == "datetime" and name in _TIMESTAMP_ONLY:
             # pandas' Timestamp attribute on the Python datetime porter collects
@@ -553,6 +574,11 @@ class Evaluator:
                 and isinstance(args[0][0], Opaque) and args[0][0].is_const \
                 and isinstance(args[0][0].const, (str, list, tuple)):
             return self.opaque(node, _CONST_BUILTINS[name](args[0][0].const))  # list("AB")
+        if args is not None and name == "float" and len(args[0]) == 1 and not args[1] \
+                and isinstance(args[0][0], Opaque) and isinstance(args[0][0].const, str) \
+                and args[0][0].const.strip().lower().lstrip("+-") in ("nan", "inf", "infinity"):
+            # float("nan") is NaN, as np.nan is (a missing value where pandas puts it)
+            return self.opaque(node, float(args[0][0].const))
         if args is None or not any(is_pandas(v) for v in (*args[0], *args[1].values())):
             return self.generic(node)
         positional, keywords = args
@@ -1122,6 +1148,9 @@ def _groups_by_time(call: PandasCall) -> bool:
 # the methods of a frame indexed by a column (and of a groupby on it) that porter ports
 _INDEXED_METHODS = {False: frozenset({"resample", "groupby", "reset_index"}),
                     True: frozenset({"resample"})}
+
+# GroupBy attributes that are values, not methods
+_GROUPBY_PROPERTIES = frozenset({"ngroups", "groups", "indices", "dtypes", "ndim"})
 
 # SeriesGroupBy methods that a DataFrameGroupBy does not have (a column of the name wins there)
 _SERIES_GROUPBY_ONLY = frozenset({"dtype", "is_monotonic_decreasing", "is_monotonic_increasing",

@@ -123,6 +123,9 @@ class Grouped(Value):
     # a column the key hides (pandas still aggregates that column)
     pandas: Code | None = field(default=None, kw_only=True)
     hides_column: bool = field(default=False, kw_only=True)
+    # kept in a name while its frame's name is changed in place later (df["c"] = ...): pandas'
+    # GroupBy sees the frame as it is at each use, so each use groups the frame held then
+    live: bool = field(default=False, kw_only=True)
 
 
 @dataclass(frozen=True)

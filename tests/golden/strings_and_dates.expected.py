@@ -33,7 +33,8 @@ visits = pl.scan_csv(
 )
 visits = visits.with_columns(name=pl.col("name").str.strip_chars().str.to_titlecase())
 visits = visits.with_columns(
-    day=pl.col("day").str.to_datetime("%Y-%m-%d", strict=False),
+    day=pl.when(~pl.col("day").str.contains("^\\s"))
+    .then(pl.col("day").str.to_datetime("%Y-%m-%d", strict=False)),
 )
 visits = visits.with_columns(weekday=pl.col("day").dt.weekday().cast(pl.Int32) - 1)
 long_names = visits.filter(pl.col("name").str.len_chars().cast(pl.Int64) > 10)

@@ -43,7 +43,8 @@ def load_passages(path):
         infer_schema_length=None,
     )
     p = p.with_columns(
-        passed_at=pl.col("passed_at").str.to_datetime("%Y-%m-%d %H:%M", strict=False),
+        passed_at=pl.when(~pl.col("passed_at").str.contains("^\\s"))
+        .then(pl.col("passed_at").str.to_datetime("%Y-%m-%d %H:%M", strict=False)),
     )
     p = p.with_columns(
         vessel_class=pl.col("vessel_class").str.strip_chars().str.to_lowercase(),

@@ -201,9 +201,10 @@ def main():
         .sink_csv("stake_melt.csv")
     )
 
-    per_zone = per_stake.drop_nulls("zone").group_by("zone")
     per_zone = (
-        per_zone
+        per_stake
+        .drop_nulls("zone")
+        .group_by("zone")
         .agg(
             pl.col("stake").drop_nulls().n_unique().cast(pl.Int64).alias("stakes"),
             pl.col("cm_per_day").mean().alias("cm_per_day"),

@@ -66,7 +66,8 @@ log = log.with_columns(gaffer=pl.col("gaffer").str.strip_chars().str.to_titlecas
 log = (
     log
     .with_columns(
-        read_at=pl.col("read_at").str.to_datetime("%Y-%m-%d %H:%M", strict=False),
+        read_at=pl.when(~pl.col("read_at").str.contains("^\\s"))
+        .then(pl.col("read_at").str.to_datetime("%Y-%m-%d %H:%M", strict=False)),
     )
     .collect()
     .lazy()
@@ -82,7 +83,8 @@ log = log.sort(
     maintain_order=True,
 )
 log = log.with_columns(
-    temp_smooth=pl.when(pl.col("furnace").is_not_null()).then(pl.col("temp_c").cast(pl.Float64).ewm_mean(span=4, ignore_nulls=True).forward_fill().over("furnace")),
+    temp_smooth=pl.when(pl.col("furnace").is_not_null())
+    .then(pl.col("temp_c").cast(pl.Float64).ewm_mean(span=4, ignore_nulls=True).forward_fill().over("furnace")),
 )
 log = log.with_columns(temp_smooth=pl.col("temp_smooth").round(1))
 log = (

@@ -39,7 +39,8 @@ def load_loans(path):
     )
     loans = loans.with_columns(due_on=pl.col("due_on").str.to_datetime("%Y-%m-%d"))
     loans = loans.with_columns(
-        returned_on=pl.col("returned_on").str.to_datetime("%Y-%m-%d", strict=False),
+        returned_on=pl.when(~pl.col("returned_on").str.contains("^\\s"))
+        .then(pl.col("returned_on").str.to_datetime("%Y-%m-%d", strict=False)),
     )
     return loans
 

@@ -98,7 +98,8 @@ per_station = (
     )
 )
 per_station = per_station.with_columns(
-    burn_share=((pl.col("high") - pl.col("low")) / pl.col("tank_litres")).fill_nan(None),
+    burn_share=((pl.col("high") - pl.col("low")) / pl.col("tank_litres"))
+    .fill_nan(None),
 )
 per_station = per_station.with_columns(burn_share=pl.col("burn_share").round(3))
 per_station = per_station.with_columns(mean_wind=pl.col('mean_wind').round(2))

@@ -115,7 +115,8 @@ loans = loans.with_columns(out_date=pl.col("out_date").str.to_datetime("%Y-%m-%d
 loans = loans.with_columns(lost=(pl.col("back_date") == "lost").fill_null(False))
 loans = loans.with_columns(broken=(pl.col("condition") == "broken").fill_null(False))
 loans = loans.with_columns(
-    back_date=pl.col("back_date").str.to_datetime("%Y-%m-%d", strict=False),
+    back_date=pl.when(~pl.col("back_date").str.contains("^\\s"))
+    .then(pl.col("back_date").str.to_datetime("%Y-%m-%d", strict=False)),
 )
 loans = (
     loans
@@ -226,7 +227,8 @@ late = (
     late
     .rename(lambda c: c + "_x" if c in ("deposit",) else c)
     .join(
-        per_tool.select("tool", "deposit").rename(lambda c, other=late.collect_schema().names(): c + "_y" if c in other and c not in ("tool",) else c),
+        per_tool.select("tool", "deposit")
+        .rename(lambda c, other=late.collect_schema().names(): c + "_y" if c in other and c not in ("tool",) else c),
         on="tool",
         how="left",
         nulls_equal=True,
