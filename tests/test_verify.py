@@ -190,3 +190,15 @@ def test_the_row_a_loop_over_rows_leaves_behind_is_not_a_result():
     names = _row_loop_names("for _, row in df.iterrows():\n    out.append(row['a'])\n"
                             "for t in df.itertuples():\n    pass\nfor x in range(3):\n    pass\n")
     assert names == {"_", "row", "t"}
+
+
+def test_an_output_left_in_the_folder_by_an_earlier_run_is_still_compared(tmp_path):
+    # the script writes out.csv again, with what an earlier run left there: it is an output
+    (tmp_path / "d.csv").write_text("k,v\na,1\nb,2\n", encoding="utf-8")
+    script = tmp_path / "s.py"
+    script.write_text('import pandas as pd\ndf = pd.read_csv("d.csv")\n'
+                      'df["w"] = df["v"] * 2\ndf.to_csv("out.csv", index=False)\n',
+                      encoding="utf-8")
+    (tmp_path / "out.csv").write_text("k,v,w\na,1,2\nb,2,4\n", encoding="utf-8")
+    result = verify(script, None, tmp_path)
+    assert "out.csv" in [o.name for o in result.outputs]

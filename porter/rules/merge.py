@@ -175,8 +175,9 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
     if back:
         code = code.method("with_columns", *(emit.col(k).method("cast", emit.atom("pl.Int64"))
                                              for k in back))
-    dtypes = {**rside.dtypes, **lside.dtypes, **{k: "int" for k in back}} \
-        if columns is not None else {}
+    # with the columns unknown, the types known of each side's columns are kept: a name both
+    # sides have is renamed with its suffix at run time, and no longer read under the old name
+    dtypes = {**rside.dtypes, **lside.dtypes, **{k: "int" for k in back}}
     # a row of one side that finds no match gives the other side's columns missing values:
     # pandas then holds an int column as floats (10.0) and a True/False one as objects, which
     # depends on the data; Polars keeps Int64 with nulls (to_csv writes 10.0 while a missing
@@ -202,7 +203,8 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
             dtypes[indicator] = "enum"
     return Frame(code, columns=columns, labels_intact=True,
                  index=lside.index if lside.index and rside.index else (),
-                 dtypes=tuple((c, dtypes[c]) for c in columns or () if c in dtypes))
+                 dtypes=tuple((c, dtypes[c]) for c in columns if c in dtypes)
+                 if columns is not None else tuple(dtypes.items()))
 
 
 _SIDE_MARKS = ("_in_left", "_in_right")
@@ -331,13 +333,16 @@ def _renamed_at_run_time(side: _Side, other_names: Code | tuple[str, ...], keys:
         if not clash:
             return side
         rename = Code(f"lambda c: c + {emit.lit(suffix).text} if c in {emit.lit(clash).text} else c")
-        return _Side(side.code.method("rename", rename), None, {}, side.keys, side.index)
+        dtypes = {(c + suffix if c in clash else c): t for c, t in side.dtypes.items()}
+        return _Side(side.code.method("rename", rename), None, dtypes, side.keys, side.index)
     test = "c in other" + (f" and c not in {emit.lit(keys).text}" if keys else "")
     # the other schema is read when the lambda is made (a default argument): reading it inside
     # the rename would re-enter Polars' plan resolution
     rename = Code(f"lambda c, other={other_names.text}: "
                   f"c + {emit.lit(suffix).text} if {test} else c")
-    return _Side(side.code.method("rename", rename), None, {}, side.keys, side.index)
+    # the types known stay under their names: a column renamed at run time is no longer read
+    # under its old name (pandas and Polars both fail there)
+    return _Side(side.code.method("rename", rename), None, side.dtypes, side.keys, side.index)
 
 
 def _renamed(side: _Side, shared: list[str], suffix: str) -> _Side:

@@ -33,10 +33,13 @@ class SideOutputs:
 
 
 def _fingerprints(root: Path) -> dict[str, str]:
+    """Each file's content and modification time: a file the script writes again with the
+    same content (an output left in the folder by an earlier run) is still one it wrote."""
     prints = {}
     for path in root.rglob("*"):
         if path.is_file() and not IGNORED_PARTS & set(path.relative_to(root).parts):
-            prints[str(path.relative_to(root))] = hashlib.sha256(path.read_bytes()).hexdigest()
+            digest = hashlib.sha256(path.read_bytes()).hexdigest()
+            prints[str(path.relative_to(root))] = f"{digest}:{path.stat().st_mtime_ns}"
     return prints
 
 

@@ -154,7 +154,9 @@ per_day = (
         maintain_order="left_right",
     )
 )
-per_day = per_day.with_columns(pay=pl.col("pieces") * pl.col("rate_per_piece"))
+per_day = per_day.with_columns(
+    pay=(pl.col("pieces") * pl.col("rate_per_piece")).fill_nan(None),
+)
 per_day = per_day.with_columns(
     gas_per_piece=(pl.col("gas") / pl.col("pieces")).fill_nan(None),
 )

@@ -99,11 +99,10 @@ def main():
         .group_by(["member_no", "full_name", "member_type"])
         .agg(
             pl.col("loan_id").count().cast(pl.Int64).alias("loans"),
-            pl.col("late").sum().alias("late"),
-            pl.col("still_out").sum().alias("still_out"),
+            pl.col("late").sum().cast(pl.Int64).alias("late"),
+            pl.col("still_out").sum().cast(pl.Int64).alias("still_out"),
             pl.col("returned_on").max().alias("last_return"),
         )
-        .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
         .sort(["member_no", "full_name", "member_type"])
     )
     by_member = (

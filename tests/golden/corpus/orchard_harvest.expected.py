@@ -121,7 +121,7 @@ monthly = (
         nulls_equal=True,
         maintain_order="left_right",
     )
-    .with_columns(revenue=pl.col("kg") * pl.col("price_per_kg"))
+    .with_columns(revenue=(pl.col("kg") * pl.col("price_per_kg")).fill_nan(None))
     .drop_nulls(["month", "grade"])
     .group_by(["month", "grade"])
     .agg(

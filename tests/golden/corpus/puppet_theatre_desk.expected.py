@@ -152,7 +152,6 @@ per_title = (
         pl.col("tickets").sum().alias("tickets"),
         pl.col("takings").sum().alias("takings"),
     )
-    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("title", nulls_last=True)
 )
 per_title = per_title.sort(

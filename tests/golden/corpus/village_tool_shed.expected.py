@@ -217,7 +217,7 @@ print(
     .select(pl.col("tool"))
     .collect()
     .to_series()
-    .to_numpy()
+    .to_pandas()
     .tolist(),
 )
 

@@ -1,0 +1,220 @@
+"""River gauge network: daily levels per gauge, the highest reading of each gauge, flood
+alerts against the bank height, and monthly flow per river."""
+import os
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one, milliseconds when they are enough.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .when((pl.selectors.datetime().dt.microsecond() % 1000 == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.3f"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
+readings = pl.scan_csv(
+    "data/readings.csv",
+    null_values=PANDAS_NA_VALUES + [],
+    infer_schema_length=None,
+)
+stations = pl.scan_csv(
+    "data/stations.csv",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
+)
+
+readings = readings.unique(keep="first", maintain_order=True)
+readings = readings.with_columns(
+    gauge=pl.col("gauge").str.strip_chars().str.to_uppercase(),
+)
+readings = (
+    readings
+    .with_columns(
+        read_at=pl.when(~pl.col("read_at").str.contains("^\\s"))
+        .then(pl.col("read_at").str.to_datetime("%Y-%m-%d %H:%M", strict=False)),
+    )
+    .collect()
+    .lazy()
+)
+unread = readings.select(pl.col("read_at").is_null().sum().cast(pl.Int64)).collect().to_series().to_numpy()[0]
+readings = readings.drop_nulls("read_at")
+readings = readings.with_columns(observer=pl.col("observer").str.to_titlecase())
+
+# the flow was not always written down: estimate it from the level where it is missing
+estimate = pl.col("level_cm") * 0.1
+readings = (
+    readings
+    .with_columns(flow_m3s=pl.col("flow_m3s").fill_null(estimate.round(2)))
+    .collect()
+    .lazy()
+)
+
+# ---- daily mean level per gauge, every day from a gauge's first reading to its last
+daily = (
+    readings
+    .with_columns(pl.col("read_at").dt.truncate("1d").alias("read_at"))
+    .drop_nulls(["gauge", "read_at"])
+    .group_by(["gauge", "read_at"])
+    .agg(pl.col("level_cm").mean())
+    .pipe(
+        lambda binned: binned.group_by("gauge").agg(pl.datetime_ranges(pl.col("read_at").min(), pl.col("read_at").max(), "1d").explode().drop_nulls().alias("read_at")).explode("read_at").sort(["gauge", "read_at"]).join(binned, on=["gauge", "read_at"], how="left", maintain_order="left"),
+    )
+    .select(
+        pl.col("gauge"),
+        pl.col("read_at"),
+        pl.col("level_cm").round(1).alias("level_cm"),
+    )
+)
+daily = daily.rename({"read_at": "day", "level_cm": "mean_level_cm"})
+
+# ---- the highest reading of each gauge
+readings = readings.collect().lazy()
+peaks = (
+    readings
+    .filter(
+        pl.col("gauge").is_not_null(),
+        pl.int_range(pl.len()).over("gauge") == pl.col("level_cm").arg_max().over("gauge"),
+    )
+    .sort("gauge", maintain_order=True)
+    .select("gauge", "read_at", "level_cm", "observer")
+    .collect()
+    .lazy()
+)
+
+# ---- alerts against the bank height
+checked = (
+    readings
+    .rename(
+        lambda c, other=stations.collect_schema().names(): c + "_x" if c in other and c not in ("gauge",) else c,
+    )
+    .with_columns(_in_left=pl.lit(True))
+    .join(
+        stations.rename(
+            lambda c, other=readings.collect_schema().names(): c + "_y" if c in other and c not in ("gauge",) else c,
+        )
+        .with_columns(_in_right=pl.lit(True)),
+        on="gauge",
+        how="left",
+        nulls_equal=True,
+        maintain_order="left_right",
+        validate="m:1",
+    )
+    .with_columns(
+        _merge=pl.when(
+            pl.col("_in_left").is_not_null() & pl.col("_in_right").is_not_null(),
+        )
+        .then(pl.lit("both"))
+        .when(pl.col("_in_left").is_not_null())
+        .then(pl.lit("left_only"))
+        .otherwise(pl.lit("right_only"))
+        .cast(pl.Enum(["left_only", "right_only", "both"])),
+    )
+    .drop("_in_left", "_in_right")
+    .collect()
+    .lazy()
+)
+unknown_gauges = checked.filter(pl.col("_merge") == "left_only").select(pl.col("gauge").unique(maintain_order=True)).collect().to_series().to_numpy().tolist()
+checked = checked.filter(pl.col("_merge") == "both").drop("_merge")
+checked = checked.with_columns(margin_cm=pl.col("bank_height_cm") - pl.col("level_cm"))
+checked = checked.with_columns(
+    margin_cm=pl.when((pl.col("margin_cm") > 0).fill_null(False))
+    .then(pl.col("margin_cm"))
+    .otherwise(0),
+)
+checked = checked.with_columns(
+    alert=pl.when(pl.col("margin_cm") < 30)
+    .then(pl.lit("high water"))
+    .otherwise(pl.lit("normal")),
+)
+checked = checked.with_columns(
+    level_cm=pl.when((pl.col("level_cm") > 250).fill_null(False))
+    .then(None)
+    .otherwise(pl.col("level_cm")),
+)
+checked = (
+    checked
+    .with_columns(month=pl.col("read_at").dt.to_string("%Y-%m"))
+    .collect()
+    .lazy()
+)
+
+alerts = checked.filter(pl.col("alert") == "high water")
+alerts_per_day = (
+    alerts
+    .with_columns(pl.col("read_at").dt.date().alias("read_at"))
+    .drop_nulls("read_at")
+    .group_by("read_at")
+    .agg(pl.col("reading_id").count().cast(pl.Int64))
+    .sort("read_at")
+    .rename({"read_at": "day"})
+)
+
+monthly = (
+    checked
+    .drop_nulls(["month", "river"])
+    .group_by(["month", "river"])
+    .agg(pl.col("flow_m3s").sum())
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
+    .sort(["month", "river"])
+)
+monthly = monthly.with_columns(flow_m3s=pl.col("flow_m3s").round(2)).collect().lazy()
+wide = (
+    monthly
+    .select("month", "river", "flow_m3s")
+    .sort("river")
+    .collect()
+    .pivot(on="river", index="month", values="flow_m3s")
+    .sort("month")
+    .lazy()
+)
+
+os.makedirs("out", exist_ok=True)
+pl.collect_all([
+    (
+        daily
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_INTS,
+        )
+        .sink_csv("out/gauge_daily_levels.csv", lazy=True)
+    ),
+    (
+        peaks
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_INTS,
+        )
+        .sink_csv("out/gauge_peaks.csv", lazy=True)
+    ),
+    alerts_per_day.with_columns(PANDAS_CSV_INTS).sink_csv("out/gauge_alerts_per_day.csv", lazy=True),
+    (
+        wide
+        .with_columns(
+            pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+            PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_INTS,
+        )
+        .sink_csv("out/river_monthly_flow.csv", lazy=True)
+    ),
+])
+print(f"unreadable stamps: {unread}, gauges without a station: {unknown_gauges}")
+print(peaks.collect().to_pandas().to_string(index=False))
