@@ -985,11 +985,10 @@ class _Walker:
             if isinstance(value, Column) and value.binding is not None \
                     and value.frame.code.text == name \
                     and (value.frame.rows != frame.rows
-                         or any(frame.version(c) != v for c, v in value.versions)
-                         or value.frame.columns != frame.columns) \
+                         or any(frame.version(c) != v for c, v in value.versions)) \
                     and (self.loop_depth or self.function is not None
                          or any(line > here for line in self.services.name_lines.get(held, ()))):
-                # other rows, a column it reads overwritten, or the columns renamed
+                # other rows, or a column it reads overwritten or renamed (a fresh version)
                 self.services.stale_series.add(value.binding)
 
     def made_by_pandas(self, name: str, expr: cst.BaseExpression, env: dict[str, Value],
