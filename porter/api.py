@@ -26,6 +26,9 @@ DATETIME_HINTS = re.compile(r"parse_dates|to_datetime|read_parquet|read_excel|re
                             r"Timestamp|datetime|date_range|\.dt\.|astype\(.datetime")
 # what shows that a script works with durations (a difference of dates, which porter keeps no
 # type for): its CSV writes then format duration columns as pandas does
+# lists of text in a column (str.split, a function that splits): a frame back from pandas
+# with its types unknown may hold them
+LIST_HINTS = re.compile(r"split\(")
 DURATION_HINTS = re.compile(r"[Tt]imedelta|DateOffset|\.dt\.(days|seconds|total_seconds|components)")
 # what can make pandas' nullable integer columns (written 2024 where a plain integer column with
 # a missing value, float in pandas, is written 2024.0); dt.isocalendar() makes UInt32 / Int32 ones
@@ -64,6 +67,7 @@ def convert_source(text: str, *, path: str | None = None, options: Options | Non
         datetimes_possible=bool(DATETIME_HINTS.search(text)),
         nullable_ints_possible=bool(NULLABLE_INT_HINTS.search(text)),
         durations_possible=bool(DURATION_HINTS.search(text)),
+        lists_possible=bool(LIST_HINTS.search(text)),
         categories_possible=bool(CATEGORY_HINTS.search(text)),
     )
     try:

@@ -14,7 +14,7 @@ from pathlib import Path
 import pytest
 
 from porter.api import convert_source
-from support import differential
+from support import convert, differential, run
 
 
 @pytest.fixture(autouse=True)
@@ -807,3 +807,21 @@ def test_series_kept_in_names_go_to_pandas_before_their_frame():
         per = df["tons"] / df["crates"]
         df.insert(0, "per", per)
         """, "df")
+
+
+def test_a_list_column_back_from_pandas_is_written_as_pandas_writes_it(tmp_path):
+    # the frame comes back from pandas with its types unknown; its lists are written as
+    # Python writes them (Polars' CSV writer refuses nested data)
+    out = tmp_path / "parts.csv"
+    source = f"""
+import pandas as pd
+df = pd.read_csv("cargo.csv")
+df["parts"] = df["kind"].str.split("i")
+df.insert(0, "n", 1)
+df["crates2"] = df["crates"] * 2
+df.to_csv({str(out)!r}, index=False)
+"""
+    differential(source, "df")
+    expected = out.read_text()
+    run(convert(source).converted_text)
+    assert out.read_text() == expected

@@ -10,7 +10,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_DURATIONS_CONSTANT,
-                                     CSV_INTS_CONSTANT, DTYPES,
+                                     CSV_INTS_CONSTANT, CSV_LISTS_CONSTANT, DTYPES,
                                      NA_CONSTANT, NOT_DECOMPRESSED, PANDAS_NA_TOKENS,
                                      compression_of, is_number, is_url, na_value_texts)
 from porter.analysis.schema import PADDING
@@ -499,6 +499,13 @@ def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
                       "2024, as a nullable column is; a plain one is float in pandas (2024.0)", 0.9)
         else:
             out.append(emit.atom(CSV_INTS_CONSTANT))
+    if ctx.lists_possible and not complete:
+        # lists of text in columns porter may not know of (a frame back from pandas): Polars'
+        # CSV writer refuses nested data, pandas writes str(list); the selector finds them all
+        ctx.lower("a list holding control characters other than \\n \\t \\r is written "
+                  "otherwise than Python's repr", 0.99)
+        out.append(emit.atom(CSV_LISTS_CONSTANT))
+        return out
     for name, kind in frame.dtypes:  # lists of text (str.split): pandas writes str(list)
         if kind == LIST_STR and (frame.columns is None or name in frame.columns):
             ctx.lower("a list holding control characters other than \\n \\t \\r is written "

@@ -94,6 +94,28 @@ PANDAS_CSV_INTS = (
 )
 """
 
+# An expression, defined once at the top of a converted script, that writes every column of
+# lists of text the way pandas' to_csv writes a Python list: ['a', "it's"], escaped as repr.
+CSV_LISTS_CONSTANT = "PANDAS_CSV_LISTS"
+CSV_LISTS_DEFINITION = """\
+# Columns of lists of text as pandas' to_csv writes them: Python's repr of the list.
+PANDAS_CSV_LISTS = pl.format(
+    "[{}]",
+    pl.selectors.by_dtype(pl.List(pl.String))
+    .list.eval(
+        pl.when(
+            pl.element().str.contains("'", literal=True)
+            & ~pl.element().str.contains('"', literal=True),
+        )
+        .then(pl.format('"{}"', pl.element().str.replace_many(
+            ["\\\\", "\\n", "\\t", "\\r"], ["\\\\\\\\", "\\\\n", "\\\\t", "\\\\r"])))
+        .otherwise(pl.format("'{}'", pl.element().str.replace_many(
+            ["\\\\", "\\n", "\\t", "\\r", "'"], ["\\\\\\\\", "\\\\n", "\\\\t", "\\\\r", "\\\\'"])))
+    )
+    .list.join(", "),
+)
+"""
+
 # A function, defined once at the top of a converted script, that divides as pandas divides.
 DIVIDE_FUNCTION = "pandas_div"
 DIVIDE_DEFINITION = """\

@@ -113,6 +113,7 @@ class RuleContext:
     datetimes_possible: bool = True  # the script makes or reads datetimes somewhere
     nullable_ints_possible: bool = True  # the script may make pandas' nullable integers
     durations_possible: bool = True  # the script may make durations porter has no type for
+    lists_possible: bool = True  # the script may make columns of lists (str.split)
     inside_from_pandas: bool = False  # the call is the argument of pl.from_pandas (porter's output)
     shown: bool = False  # the value is only printed or displayed (print(...), a bare cell value)
     function_def: Any = None  # name -> the script's own FunctionDef (defined once), or None

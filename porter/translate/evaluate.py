@@ -89,6 +89,7 @@ class Services:
     # does not tell from plain ones
     nullable_ints_possible: bool = True
     durations_possible: bool = True  # the script may make durations of unknown type
+    lists_possible: bool = True  # the script may make columns of lists (str.split)
     # statements that compute each named frame's data, by the assignment that named it
     consumers: dict[int, set[tuple[int, int]]] = field(default_factory=dict)
     # the script may make category columns (astype("category"), cut, a parquet file): a frame
@@ -790,6 +791,7 @@ class Evaluator:
                           datetimes_possible=self.services.datetimes_possible,
                           nullable_ints_possible=self.services.nullable_ints_possible,
                           durations_possible=self.services.durations_possible,
+                          lists_possible=self.services.lists_possible,
                           inside_from_pandas=self.services.inside_from_pandas(node),
                           shown=self.services.shown(node),
                           function_def=self.services.function_defs.get)

@@ -7,7 +7,8 @@ import libcst as cst
 from porter.analysis.imports import ImportFacts
 from porter.rules.io_options import (
     CATEGORY_COUNTS_DEFINITION, CATEGORY_COUNTS_FUNCTION,
-    CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION, CSV_DURATIONS_CONSTANT,
+    CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION, CSV_DURATIONS_CONSTANT, CSV_LISTS_CONSTANT,
+    CSV_LISTS_DEFINITION,
     CSV_DURATIONS_DEFINITION, CSV_INTS_CONSTANT, CSV_INTS_DEFINITION,
     DIVIDE_DEFINITION, DIVIDE_FUNCTION,
     NA_CONSTANT, PANDAS_NA_TOKENS, QUANTILE_DEFINITION, QUANTILE_FUNCTION,
@@ -83,7 +84,8 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
         body.append(stmt)
     if not inserted:
         body = _insert_at_top(body)
-    for constant, definition in ((CSV_INTS_CONSTANT, CSV_INTS_DEFINITION),
+    for constant, definition in ((CSV_LISTS_CONSTANT, CSV_LISTS_DEFINITION),
+                                 (CSV_INTS_CONSTANT, CSV_INTS_DEFINITION),
                                  (CSV_DURATIONS_CONSTANT, CSV_DURATIONS_DEFINITION),
                                  (CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION)):
         if constant in used and not _defines(module, constant):

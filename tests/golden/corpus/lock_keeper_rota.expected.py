@@ -22,6 +22,23 @@ PANDAS_CSV_INTS = (
     .otherwise(pl.selectors.integer().cast(pl.String))
 )
 
+# Columns of lists of text as pandas' to_csv writes them: Python's repr of the list.
+PANDAS_CSV_LISTS = pl.format(
+    "[{}]",
+    pl.selectors.by_dtype(pl.List(pl.String))
+    .list.eval(
+        pl.when(
+            pl.element().str.contains("'", literal=True)
+            & ~pl.element().str.contains('"', literal=True),
+        )
+        .then(pl.format('"{}"', pl.element().str.replace_many(
+            ["\\", "\n", "\t", "\r"], ["\\\\", "\\n", "\\t", "\\r"])))
+        .otherwise(pl.format("'{}'", pl.element().str.replace_many(
+            ["\\", "\n", "\t", "\r", "'"], ["\\\\", "\\n", "\\t", "\\r", "\\'"])))
+    )
+    .list.join(", "),
+)
+
 SHIFTS = ["shift_1", "shift_2", "shift_3"]
 WEEK_HOURS = 37.5
 
@@ -168,6 +185,7 @@ pay = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
+        PANDAS_CSV_LISTS,
     )
     .sink_csv("keeper_pay.csv")
 )
@@ -193,6 +211,7 @@ cover = cover.with_columns(
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
+        PANDAS_CSV_LISTS,
     )
     .sink_csv("lock_cover.csv")
 )
@@ -204,6 +223,7 @@ unmanned = rota.filter((pl.col("hours") == 0) & (pl.col("boats") > 0)).collect()
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
+        PANDAS_CSV_LISTS,
     )
     .sink_csv("self_worked.csv")
 )

@@ -33,6 +33,23 @@ PANDAS_CSV_INTS = (
     .otherwise(pl.selectors.integer().cast(pl.String))
 )
 
+# Columns of lists of text as pandas' to_csv writes them: Python's repr of the list.
+PANDAS_CSV_LISTS = pl.format(
+    "[{}]",
+    pl.selectors.by_dtype(pl.List(pl.String))
+    .list.eval(
+        pl.when(
+            pl.element().str.contains("'", literal=True)
+            & ~pl.element().str.contains('"', literal=True),
+        )
+        .then(pl.format('"{}"', pl.element().str.replace_many(
+            ["\\", "\n", "\t", "\r"], ["\\\\", "\\n", "\\t", "\\r"])))
+        .otherwise(pl.format("'{}'", pl.element().str.replace_many(
+            ["\\", "\n", "\t", "\r", "'"], ["\\\\", "\\n", "\\t", "\\r", "\\'"])))
+    )
+    .list.join(", "),
+)
+
 HOURLY_RATE = 38   # per hour, agreed with the ferry board in 2023
 
 
@@ -157,6 +174,7 @@ per_ferry = (
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_INTS,
+        PANDAS_CSV_LISTS,
     )
     .sink_csv("ferry_costs.csv")
 )
@@ -185,6 +203,7 @@ usage = usage.with_columns(spent=pl.col("spent").round(2))
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_INTS,
+        PANDAS_CSV_LISTS,
     )
     .sink_csv("data/part_usage.csv")
 )
@@ -203,6 +222,7 @@ deferred = (
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_INTS,
+        PANDAS_CSV_LISTS,
     )
     .sink_csv("deferred_parts.csv")
 )
