@@ -26,6 +26,8 @@ DATETIME_HINTS = re.compile(r"parse_dates|to_datetime|read_parquet|read_excel|re
                             r"Timestamp|datetime|date_range|\.dt\.|astype\(.datetime")
 # what shows that a script works with durations (a difference of dates, which porter keeps no
 # type for): its CSV writes then format duration columns as pandas does
+# a division (x / 0 is inf) or an infinity written out: pandas' windows take inf as missing
+INFINITY_HINTS = re.compile(r"[^/]/[^/=]|\binf\b|np\.inf|Infinity")
 # lists of text in a column (str.split, a function that splits): a frame back from pandas
 # with its types unknown may hold them
 LIST_HINTS = re.compile(r"split\(")
@@ -68,6 +70,7 @@ def convert_source(text: str, *, path: str | None = None, options: Options | Non
         nullable_ints_possible=bool(NULLABLE_INT_HINTS.search(text)),
         durations_possible=bool(DURATION_HINTS.search(text)),
         lists_possible=bool(LIST_HINTS.search(text)),
+        infinities_possible=bool(INFINITY_HINTS.search(text)),
         categories_possible=bool(CATEGORY_HINTS.search(text)),
     )
     try:

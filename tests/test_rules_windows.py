@@ -652,3 +652,19 @@ def test_an_int_column_given_missing_values_stays_float_after_they_are_dropped(m
     run(convert(source).converted_text)
     assert out.read_text() == expected
     assert type(run(source)["total"]) is type(run(convert(source).converted_text)["total"])
+
+
+def test_windows_take_an_infinity_as_missing_as_pandas_does() -> None:
+    # x / 0 is inf: pandas' rolling, expanding and ewm code treat it as a missing value
+    source = '''
+import pandas as pd
+df = pd.DataFrame({"kg": [10, 6, 8, 9, -3], "hours": [2, 0, 4, 3, 0], "k": ["a", "a", "b", "b", "a"]})
+df["rate"] = df["kg"] / df["hours"]
+df["avg2"] = df["rate"].rolling(2, min_periods=1).mean()
+df["run"] = df["rate"].expanding().mean()
+df["smooth"] = df["rate"].ewm(span=2).mean()
+df["sum2"] = df["rate"].rolling(2).sum()
+df["by_k"] = df.groupby("k")["rate"].transform(lambda s: s.rolling(2, min_periods=1).mean())
+'''
+    result = differential(source, "df")
+    assert "TODO" not in result.converted_text

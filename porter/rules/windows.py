@@ -584,7 +584,11 @@ def _numeric(column: Column, ctx: RuleContext) -> Code:
     if column.dtype in NOT_NUMERIC:
         raise Unsupported(f"a window over a {column.dtype} column (pandas raises)")
     code = ctx.bool_expr(column, column.frame) if column.dtype == "bool" else column.code
-    return code if column.dtype == "float" else code.method("cast", emit.atom("pl.Float64"))
+    code = code if column.dtype == "float" else code.method("cast", emit.atom("pl.Float64"))
+    if ctx.infinities_possible and column.dtype in ("float", None):
+        # a quotient holds ±inf where it divided by 0; pandas' windows take inf as missing
+        code = code.method("replace", emit.atom('[float("inf"), float("-inf")]'), None)
+    return code
 
 
 def _window_args(options: dict[str, object], kind: str) -> tuple[list[object], dict[str, object]]:

@@ -114,6 +114,7 @@ class RuleContext:
     nullable_ints_possible: bool = True  # the script may make pandas' nullable integers
     durations_possible: bool = True  # the script may make durations porter has no type for
     lists_possible: bool = True  # the script may make columns of lists (str.split)
+    infinities_possible: bool = True  # the script divides or writes an infinity
     inside_from_pandas: bool = False  # the call is the argument of pl.from_pandas (porter's output)
     shown: bool = False  # the value is only printed or displayed (print(...), a bare cell value)
     function_def: Any = None  # name -> the script's own FunctionDef (defined once), or None

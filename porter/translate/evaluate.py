@@ -90,6 +90,7 @@ class Services:
     nullable_ints_possible: bool = True
     durations_possible: bool = True  # the script may make durations of unknown type
     lists_possible: bool = True  # the script may make columns of lists (str.split)
+    infinities_possible: bool = True  # the script divides or writes an infinity
     # statements that compute each named frame's data, by the assignment that named it
     consumers: dict[int, set[tuple[int, int]]] = field(default_factory=dict)
     # the script may make category columns (astype("category"), cut, a parquet file): a frame
@@ -792,6 +793,7 @@ class Evaluator:
                           nullable_ints_possible=self.services.nullable_ints_possible,
                           durations_possible=self.services.durations_possible,
                           lists_possible=self.services.lists_possible,
+                          infinities_possible=self.services.infinities_possible,
                           inside_from_pandas=self.services.inside_from_pandas(node),
                           shown=self.services.shown(node),
                           function_def=self.services.function_defs.get)

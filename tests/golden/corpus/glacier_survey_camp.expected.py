@@ -106,8 +106,8 @@ def main():
     # rolling over the whole sorted book -- the first rows of a stake still see the last of the previous one
     readings = readings.with_columns(
         jump=(
-            pl.col("exposed_cm").cast(pl.Float64)
-            - pl.col("exposed_cm").cast(pl.Float64).rolling_median(3, min_samples=2)
+            pl.col("exposed_cm").cast(pl.Float64).replace([float("inf"), float("-inf")], None)
+            - pl.col("exposed_cm").cast(pl.Float64).replace([float("inf"), float("-inf")], None).rolling_median(3, min_samples=2)
         )
         .fill_nan(None)
         .abs(),
