@@ -906,3 +906,9 @@ q = df.pivot_table(index="k", columns="f", values="n", aggfunc="sum")
     result = differential(source, "d", "p", "q")
     keys = {s.key for s in result.sites if s.status == "todo"}
     assert {"frame.describe", "frame.pivot_table"} <= keys
+
+
+def test_the_sum_of_a_text_column_joins_the_texts() -> None:
+    source = ('import pandas as pd\ndf = pd.DataFrame({"s": ["a", "b", None, "ø", ""]})\n'
+              'result = df["s"].sum()\nshown = f"codes: {df[\'s\'].sum()}"\n')
+    differential(source, "result", "shown")

@@ -789,6 +789,9 @@ def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, st
             # True/False as pandas writes them; a missing value stays missing (pandas keeps
             # the NaN of a True/False column read with a blank: it is not "False")
             return code.method("replace_strict", {True: "True", False: "False"}), "str"
+    if kind == "str" and column.dtype == "float":
+        ctx.lower("a float below 0.0001 is written 1e-05 by Python (pandas), 0.00001 or 1e-5 "
+                  "by Polars", 0.95)
     if kind == "str" and column.dtype == "datetime":
         # "2024-01-31" when every time is midnight, as pandas writes the column
         from porter.rules.io_options import datetime_text

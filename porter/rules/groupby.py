@@ -382,7 +382,8 @@ def scalar_of(column: Column, expr: Code, pytype: str | None = None, *,
 def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
     """s.sum() / mean / median / min / max / std / var / count / nunique -> a Python scalar.
 
-    Handles: missing values are skipped (nunique does not count them); std/var with ddof=1;
+    Handles: missing values are skipped (nunique does not count them); the sum of text joins
+    the texts; std/var with ddof=1;
     the mean, median, std, var (and the min and max of a float column) of no values (an empty
     selection, only missing values, the std of one value) are NaN in pandas and None in
     Polars: the Python value is made NaN (fill_null(float("nan"))).
@@ -403,6 +404,10 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         expr = agg_expr(code, how)
     elif how == "sum" and column.dtype == "bool":
         expr = agg_expr(code, how, "bool")  # Int64, as pandas' int64 (Polars' UInt32 wraps)
+    elif how == "sum" and column.dtype == "str":
+        # pandas joins the texts (missing ones skipped); of no text at all it gives 0
+        ctx.lower("the sum of no text at all is 0 in pandas and \"\" here", 0.98)
+        expr = agg_expr(code, how, "str")
     else:
         expr = code.method(how)
     if how in ("min", "max") and column.dtype == "datetime":
