@@ -736,3 +736,17 @@ def test_indicator_matches_pandas(merge: str) -> None:
         '\nkept = both[both["_merge"] == "both"].drop(columns="_merge")\n')
     result = differential(source, "both", "only_left", "counts", "kept")
     assert "TODO" not in result.converted_text
+
+
+def test_a_category_key_joins_a_text_key_as_in_pandas() -> None:
+    # pandas joins the two; Polars refuses a Categorical against a String key
+    source = '''
+import pandas as pd
+left = pd.DataFrame({"k": ["b", "a", None, "c", "a"], "v": [1, 2, 3, 4, 5]})
+left["k"] = left["k"].astype("category")
+right = pd.DataFrame({"k": ["a", "b", "z"], "w": [10.0, 20.0, 30.0]})
+m = left.merge(right, on="k", how="left")
+n = right.merge(left, on="k", how="inner")
+'''
+    result = differential(source, "m", "n")
+    assert "TODO" not in result.converted_text

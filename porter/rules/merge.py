@@ -357,14 +357,28 @@ def _renamed(side: _Side, shared: list[str], suffix: str) -> _Side:
 
 def _common_key_types(lside: _Side, rside: _Side) -> tuple[_Side, _Side]:
     """pandas joins an int key to a float key; Polars raises SchemaError (J11)."""
-    lcast, rcast = [], []
+    lcast, rcast, ltext, rtext = [], [], [], []
     for lk, rk in zip(lside.keys, rside.keys):
         kinds = (lside.dtypes.get(lk), rside.dtypes.get(rk))
         if kinds == ("int", "float"):
             lcast.append(lk)
         elif kinds == ("float", "int"):
             rcast.append(rk)
-    return _cast_float(lside, lcast), _cast_float(rside, rcast)
+        elif kinds == ("category", "str"):  # pandas joins a category key to a text one
+            ltext.append(lk)
+        elif kinds == ("str", "category"):
+            rtext.append(rk)
+    return (_cast_text(_cast_float(lside, lcast), ltext),
+            _cast_text(_cast_float(rside, rcast), rtext))
+
+
+def _cast_text(side: _Side, keys: list[str]) -> _Side:
+    """Category keys joined to text keys: as text (Polars refuses to join the two types)."""
+    if not keys:
+        return side
+    exprs = [emit.col(k).method("cast", emit.atom("pl.String")) for k in keys]
+    return _Side(side.code.method("with_columns", *exprs), side.columns,
+                 {**side.dtypes, **{k: "str" for k in keys}}, side.keys, side.index)
 
 
 def _int_keys_widened(lside: _Side, rside: _Side) -> tuple[list[str], list[str]]:
