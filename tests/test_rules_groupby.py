@@ -902,8 +902,9 @@ df["day"] = pd.to_datetime(df["day"], format="%Y-%m-%d")
 d = df.describe()
 p = df.pivot_table(index="k", columns="day", values="n", aggfunc="sum")
 q = df.pivot_table(index="k", columns="f", values="n", aggfunc="sum")
+r = df.pivot(index="k", columns="day", values="n")
 '''
-    result = differential(source, "d", "p", "q")
+    result = differential(source, "d", "p", "q", "r")
     keys = {s.key for s in result.sites if s.status == "todo"}
     assert {"frame.describe", "frame.pivot_table"} <= keys
 
@@ -912,3 +913,17 @@ def test_the_sum_of_a_text_column_joins_the_texts() -> None:
     source = ('import pandas as pd\ndf = pd.DataFrame({"s": ["a", "b", None, "ø", ""]})\n'
               'result = df["s"].sum()\nshown = f"codes: {df[\'s\'].sum()}"\n')
     differential(source, "result", "shown")
+
+
+def test_a_column_groupby_kept_in_a_name_keeps_the_column_as_it_was() -> None:
+    # pandas' SeriesGroupBy holds the column taken, not the frame: df["x"] = ... after it
+    # does not change what it sums (a DataFrameGroupBy would see the new column)
+    source = '''
+import pandas as pd
+df = pd.DataFrame({"k": ["a", "b", "a", None], "x": [1, 2, 3, 4], "y": [5, 6, 7, 8]})
+g = df.groupby("k")["x"]
+df["x"] = df["x"] * 100
+df.insert(0, "n", 1)
+s = g.sum()
+'''
+    differential(source, "df", "s")

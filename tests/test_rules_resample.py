@@ -440,3 +440,14 @@ def test_dict_of_lists_flattened_as_pandas_joins_them(agg: str) -> None:
                       'weekly.columns = ["_".join(c) for c in weekly.columns]\n')
     result = differential(source, "result", "weekly")
     assert "TODO" not in result.converted_text
+
+
+def test_the_date_index_of_a_resampled_frame_read_otherwise_is_pandas_own_index() -> None:
+    # strftime is ported as the key column's dt method; tolist() and min() are handed over as
+    # pandas' DatetimeIndex of the frame (not a Series' .dt, which has neither)
+    source = FRAME + ('wide = df.set_index("ts").resample("W")[["v"]].sum()\n'
+                      'days = wide.index.tolist()\n'
+                      'first = wide.index.min()\n'
+                      'wide.index = wide.index.strftime("%d.%m")\n'
+                      'result = wide.reset_index()\n')
+    differential(source, "days", "first", "result")

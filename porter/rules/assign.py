@@ -15,9 +15,10 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.io import polars_dtype
+from porter.rules.io_options import datetime_text
 from porter.rules.ops import int64_lit
 from porter.translate.context import (
-    PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
+    MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
     with_column_updates,
 )
 from porter.rules.strings import LIST_STR, expanded_columns
@@ -112,7 +113,7 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
             # pandas' Interval values have no Polars type (from_pandas keeps an extension
             # column no writer takes): the statement and the frame stay pandas
             raise Unsupported("pandas' interval labels have no Polars type: the frame stays pandas")
-        if any("mixed column" in site.message for site in value.sites):
+        if any(MIXED_COLUMN in site.message for site in value.sites):
             # text put into numbers (fillna, where, combine_first): an object column in
             # pandas, which pl.Series refuses or turns into text
             raise Unsupported("pandas makes a mixed (object) column here, which has no Polars "
@@ -794,8 +795,7 @@ def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, st
                   "by Polars", 0.95)
     if kind == "str" and column.dtype == "datetime":
         # "2024-01-31" when every time is midnight, as pandas writes the column
-        from porter.rules.io_options import datetime_text
-        return datetime_text(code), "str"  # type: ignore[return-value]
+        return datetime_text(code), "str"
     if kind == "bool":
         if column.dtype == "str":
             return emit.binop(code, "!=", "").method("fill_null", True), "bool"

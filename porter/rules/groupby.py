@@ -611,6 +611,14 @@ def series_any_all(call: PandasCall, ctx: RuleContext) -> Value:
     return scalar_of(column, code.method(call.name), pytype="bool")
 
 
+def _check_columns_key(frame: Frame, columns: str) -> None:
+    """The key whose values name the new columns of a pivot: its values' text must be what
+    pandas' labels are written as."""
+    if frame.dtype(columns) in ("datetime", "date", "bool"):
+        raise Unsupported(f"a {frame.dtype(columns)} columns key: pandas labels the new columns "
+                          "with its values (Timestamps, True/False), Polars with their text")
+
+
 def pivot_sorted(code: Code, on: str, keys: list[str], values: str, fill: Any,
                  float_when_missing: bool) -> Code:
     """The groups (one row per combination) collected and pivoted as pandas lays the table
@@ -656,9 +664,7 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("values given as a list: pandas keeps two levels of column labels")
     if not isinstance(columns, str) or not isinstance(values, str):
         raise Unsupported("one values column and one columns key only")
-    if frame.dtype(columns) in ("datetime", "date", "bool"):
-        raise Unsupported(f"a {frame.dtype(columns)} columns key: pandas labels the new columns "
-                          "with its values (Timestamps, True/False), Polars with their text")
+    _check_columns_key(frame, columns)
     keys = [index] if isinstance(index, str) else list(index or [])
     if not keys or not all(isinstance(k, str) for k in keys):
         raise Unsupported("a pivot without index keys")
@@ -793,6 +799,7 @@ def pivot(call: PandasCall, ctx: RuleContext) -> Value:
     absent = [c for c in (index, columns, values) if known is not None and c not in known]
     if absent:
         raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
+    _check_columns_key(frame, columns)
     value_dtype = frame.dtype(values)
     if value_dtype is None:
         ctx.lower("the values' type is not known: pandas turns whole numbers float when a "

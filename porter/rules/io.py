@@ -471,6 +471,10 @@ def written_index(frame: Frame, index: bool) -> Frame:
     return frame
 
 
+_LIST_REPR_CAVEAT = ("a list holding control characters other than \\n \\t \\r is written "
+                     "otherwise than Python's repr")
+
+
 def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
     """Columns whose text pandas writes differently, written the pandas way.
 
@@ -502,14 +506,12 @@ def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
     if ctx.lists_possible and not complete:
         # lists of text in columns porter may not know of (a frame back from pandas): Polars'
         # CSV writer refuses nested data, pandas writes str(list); the selector finds them all
-        ctx.lower("a list holding control characters other than \\n \\t \\r is written "
-                  "otherwise than Python's repr", 0.99)
+        ctx.lower(_LIST_REPR_CAVEAT, 0.99)
         out.append(emit.atom(CSV_LISTS_CONSTANT))
         return out
     for name, kind in frame.dtypes:  # lists of text (str.split): pandas writes str(list)
         if kind == LIST_STR and (frame.columns is None or name in frame.columns):
-            ctx.lower("a list holding control characters other than \\n \\t \\r is written "
-                      "otherwise than Python's repr", 0.99)
+            ctx.lower(_LIST_REPR_CAVEAT, 0.99)
             out.append(list_repr(emit.col(name)).method("alias", name))
     return out
 

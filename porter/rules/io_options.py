@@ -7,6 +7,9 @@ from typing import Any
 
 import polars as pl
 
+from porter.emit import code as emit
+from porter.emit.code import Code
+
 # pandas' default missing-value tokens (sorted(pandas._libs.parsers.STR_NA_VALUES), pandas 3.1).
 # Polars only treats the empty field as missing, so every scan lists them.
 PANDAS_NA_TOKENS = ["", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
@@ -30,20 +33,18 @@ PANDAS_CSV_DATETIMES = (
 """
 
 
-def datetime_text(time: object) -> object:
-    """A datetime column's values as pandas' astype(str) and to_csv write them, decided from
-    the whole column: dates only when every time is midnight, then whole seconds,
-    milliseconds, or microseconds, as few as the values need (`time` is a Code)."""
-    from porter.emit import code as emit
-    t = time
-    every = (lambda test: test.method("all"))
-    return (emit.pl("when", every(emit.binop(t, "==", t.attr("dt").method("truncate", "1d"))))
-            .method("then", t.attr("dt").method("to_string", "%Y-%m-%d"))
-            .method("when", every(emit.binop(t.attr("dt").method("microsecond"), "==", 0)))
-            .method("then", t.attr("dt").method("to_string", "%Y-%m-%d %H:%M:%S"))
-            .method("when", every(emit.binop(emit.binop(t.attr("dt").method("microsecond"), "%", 1000), "==", 0)))
-            .method("then", t.attr("dt").method("to_string", "%Y-%m-%d %H:%M:%S%.3f"))
-            .method("otherwise", t.attr("dt").method("to_string", "%Y-%m-%d %H:%M:%S%.6f")))
+def datetime_text(time: Code) -> Code:
+    """One datetime column's values as pandas' astype(str) writes them: the same choice as
+    PANDAS_CSV_DATETIMES above makes for every datetime column of a write (keep the two in
+    step), decided from the whole column."""
+    dt = time.attr("dt")
+    midnight = emit.binop(time, "==", dt.method("truncate", "1d")).method("all")
+    seconds = emit.binop(dt.method("microsecond"), "==", 0).method("all")
+    millis = emit.binop(emit.binop(dt.method("microsecond"), "%", 1000), "==", 0).method("all")
+    return (emit.pl("when", midnight).method("then", dt.method("to_string", "%Y-%m-%d"))
+            .method("when", seconds).method("then", dt.method("to_string", "%Y-%m-%d %H:%M:%S"))
+            .method("when", millis).method("then", dt.method("to_string", "%Y-%m-%d %H:%M:%S%.3f"))
+            .method("otherwise", dt.method("to_string", "%Y-%m-%d %H:%M:%S%.6f")))
 
 # An expression, defined once at the top of a converted script, that writes every duration
 # column the way pandas' to_csv writes a timedelta column (decided per column from the data).

@@ -1,7 +1,7 @@
 """Combining frames: merge -> LazyFrame.join, pd.concat -> pl.concat.
 
-Caveats: indicator=, validate= on right joins, left_index/right_index, the anti joins and axis=1 concatenation
-are TODOs. Missing keys match each other only as nulls: porter keeps frames NaN-free (NaN is
+Caveats: indicator= and validate= on right or cross joins, left_index/right_index, the anti
+joins and axis=1 concatenation are TODOs. Missing keys match each other only as nulls: porter keeps frames NaN-free (NaN is
 written as a missing value), and a NaN produced by arithmetic would match only NaN in Polars.
 """
 
@@ -158,8 +158,9 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
             raise ctx.todo(f"a column is named {indicator!r}, {_SIDE_MARKS[0]!r} or "
                            f"{_SIDE_MARKS[1]!r} (pandas raises for the first; porter marks the "
                            "sides with the others)")
-        lside = replace(lside, code=lside.code.method("with_columns", **{_SIDE_MARKS[0]: emit.pl("lit", True)}))
-        rside = replace(rside, code=rside.code.method("with_columns", **{_SIDE_MARKS[1]: emit.pl("lit", True)}))
+        marked = [replace(side, code=side.code.method("with_columns", **{mark: emit.pl("lit", True)}))
+                  for side, mark in zip((lside, rside), _SIDE_MARKS)]
+        lside, rside = marked
     code = lside.code.method("join", rside.code, **kwargs)
     if how == "right" and coalesced:
         code = _right_join_order(code, lside, rside, columns, suffix or "_right")

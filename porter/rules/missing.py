@@ -10,7 +10,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import (
-    PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
+    MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
 )
 from porter.translate.values import Column, Frame, Opaque, Scalar, Value
 
@@ -143,8 +143,8 @@ def series_fillna(call: PandasCall, ctx: RuleContext) -> Value:
         return column  # pandas fills NaN with NaN: nothing (fill_null(nan) would fill them)
     if isinstance(value, Opaque) and value.is_const:
         if _mixes_types(value.const, column.dtype):
-            raise Unsupported(f"filling {value.const!r} into a {column.dtype} column makes a "
-                              "mixed column in pandas; Polars would turn every value into text")
+            raise Unsupported(f"filling {value.const!r} into a {column.dtype} column "
+                              f"{MIXED_COLUMN}; Polars would turn every value into text")
         if column.dtype is None and _kind_of(value.const) in ("str", "number"):
             ctx.lower("the column type is not known: a fill value of another type makes a mixed "
                       "column in pandas, text in Polars", 0.85)
@@ -171,8 +171,7 @@ def series_combine_first(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("combine_first with something other than a column of the same rows")
     kinds = {column.dtype, other.dtype}
     if None not in kinds and len(kinds) > 1 and kinds != {"int", "float"}:
-        raise Unsupported(f"a {other.dtype} column into a {column.dtype} one makes a mixed "
-                          "column in pandas")
+        raise Unsupported(f"a {other.dtype} column into a {column.dtype} one {MIXED_COLUMN}")
     code = column.code.method("fill_null", fill_value(other, column.frame, ctx))
     dtype = column.dtype if len(kinds) == 1 else "float" if kinds == {"int", "float"} else None
     return derived_column(column, code, dtype=dtype, others=[other])
@@ -202,7 +201,7 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
                 continue  # pandas ignores names that are not columns
             if _mixes_types(v, frame.dtype(name)):
                 raise Unsupported(f"filling {v!r} into the {frame.dtype(name)} column {name!r} "
-                                  "makes a mixed column in pandas")
+                                  f"{MIXED_COLUMN}")
             items.append((name, emit.col(name).method("fill_null", emit.as_expr(v)), frame.dtype(name)))
         if frame.columns is None:
             ctx.lower("the columns are not known: a name that is not a column is ignored by "

@@ -18,7 +18,7 @@ from porter.rules import rule
 from porter.rules.datetimes import is_timedelta, timedelta_arithmetic
 from porter.rules.io_options import DIVIDE_FUNCTION
 from porter.translate.context import (
-    PandasCall, RuleContext, Unsupported, derive, derived_column, value_dtype,
+    MIXED_COLUMN, PandasCall, RuleContext, Unsupported, derive, derived_column, value_dtype,
 )
 from porter.translate.values import Column, Frame, Opaque, Scalar, Value
 
@@ -514,12 +514,9 @@ def where_mask(call: PandasCall, ctx: RuleContext) -> Value:
         numbers = {"int", "float"}
         if kind is not None and column.dtype is not None and kind != column.dtype \
                 and not {kind, column.dtype} <= numbers:
-            raise Unsupported(f"a {kind} value into a {column.dtype} column makes a mixed "
-                              "column in pandas")
+            raise Unsupported(f"a {kind} value into a {column.dtype} column {MIXED_COLUMN}")
     frame = column.frame
-    test = ctx.bool_expr(cond, frame)
-    if not cond.null_is_false:
-        test = test.method("fill_null", False)
+    test = ctx.expr(cond, frame).method("fill_null", False)  # missing: False, as pandas has it
     kept = column.code
     replacement = emit.atom("None") if missing else _branch(other, ctx, frame)
     if call.name == "mask":

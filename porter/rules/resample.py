@@ -9,8 +9,8 @@ do not overlap and a row falls in exactly one). pandas' defaults are kept:
   counted from midnight of the first timestamp's day (origin="start_day"): a `dt.truncate`
   where the length divides a day (the bins are then the same from any midnight), otherwise
   the first midnight plus whole bins;
-- W-XXX, ME, QE, YE are closed and labelled on the right, and pandas moves the right edge to
-  the end of that day, so a row belongs to its date's period whatever its time of day
+- W (W-MON … W-SUN), ME, QE, YE are closed and labelled on the right, and pandas moves the
+  right edge to the end of that day, so a row belongs to its date's period whatever its time of day
   (Sunday 12:00 is in the week ending that Sunday); MS, QS, YS are closed and labelled on the
   left;
 - rows with a missing timestamp are left out, the result is ordered by the label;
@@ -148,9 +148,9 @@ def bins_of(freq: object) -> Bins:
     if freq in _REJECTED:
         raise Unsupported(f"pandas 3.1 rejects the rule {freq!r} (ValueError); "
                           f"{_REJECTED[freq]!r} is its spelling now")
-    raise Unsupported(f"rule {freq!r}: porter ports D, h, min, s (and multiples), W / W-XXX, "
-                      "MS, ME, QS, QE, YS, YE (business days, semi-months, multiples of weeks "
-                      "or months and lower-case spellings are not ported)")
+    raise Unsupported(f"rule {freq!r}: porter ports D, h, min, s (and multiples), "
+                      "W / W-MON … W-SUN, MS, ME, QS, QE, YS, YE (business days, semi-months, "
+                      "multiples of weeks or months and lower-case spellings are not ported)")
 
 
 def _check_options(call: PandasCall, bins: Bins) -> None:
@@ -171,7 +171,7 @@ def _check_options(call: PandasCall, bins: Bins) -> None:
 def resample(call: PandasCall, ctx: RuleContext) -> Value:
     """df.resample(rule, on="ts") -> time bins waiting for an aggregation (`resample.sum` ...).
 
-    Handles: the rules D, h, min, s and their multiples, W / W-XXX, MS, ME, QS, QE, YS, YE
+    Handles: the rules D, h, min, s and their multiples, W / W-MON … W-SUN, MS, ME, QS, QE, YS, YE
     with pandas' closed= and label= (given or not) and origin="start_day".
     Caveats: resampling the index (no on=), other closed / label / origin, offset=,
     convention=, kind=, group_keys= and business-day rules are TODOs.

@@ -196,7 +196,8 @@ def frame_index(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo("the index is not data in Polars: keep the labels in a column "
                        "(with_row_index) and use it")
     key = frame.index[0]
-    return Accessor(Code(f"{frame.code.text}.index"), column=column_of(frame, key), kind="dt")
+    return Accessor(Code(f"{frame.code.text}.index"), column=column_of(frame, key), kind="dt",
+                    index_of=frame)
 
 
 @rule("frame.index.assign")

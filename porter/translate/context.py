@@ -168,6 +168,11 @@ class RuleContext:
         return code
 
 
+# what a TODO says where pandas makes an object column of values of two kinds (text filled
+# into numbers): a Series so made has no Polars type, so the frame it goes into stays pandas
+MIXED_COLUMN = "makes a mixed column in pandas"
+
+
 def expr_in(value: Value, frame: Frame) -> Code:
     if isinstance(value, Column):
         check_same_rows(value, frame)

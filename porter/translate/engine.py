@@ -1180,9 +1180,11 @@ class _Walker:
             env[name] = replace(value, code=handover.to_pandas(kept).method("set_index", value.key),
                                 frame=kept, sites=())
         elif isinstance(value, Grouped) and value.frame.code.text.isidentifier() \
-                and not value.prepared and self.changed_later(value.frame.code.text):
-            # pandas' GroupBy holds the frame object, which df["c"] = ... changes in place
-            # later: each use groups the frame as it is then, so nothing is bound here
+                and not value.prepared and value.selection is None \
+                and self.changed_later(value.frame.code.text):
+            # pandas' DataFrameGroupBy holds the frame object, which df["c"] = ... changes in
+            # place later: each use groups the frame as it is then, so nothing is bound here
+            # (one of its columns taken, g = df.groupby(k)["x"], holds that column as it was)
             env[name] = replace(value, sites=(), live=True)
             return "", list(value.sites)
         elif isinstance(value, Grouped):

@@ -161,6 +161,8 @@ def to_pandas(value: Value) -> Code:
         if value.selection is not None:
             code = code.index(value.selection[0] if value.single else list(value.selection))
         return code
+    if isinstance(value, Accessor) and value.index_of is not None:
+        return to_pandas(value.index_of).attr("index")  # pandas' DatetimeIndex itself
     if isinstance(value, Accessor):
         if value.kind in WINDOW_KINDS:  # the window is made again, with the same arguments
             grouped = getattr(value, "grouped", None)  # a window within groups

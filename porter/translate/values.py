@@ -124,7 +124,8 @@ class Grouped(Value):
     pandas: Code | None = field(default=None, kw_only=True)
     hides_column: bool = field(default=False, kw_only=True)
     # kept in a name while its frame's name is changed in place later (df["c"] = ...): pandas'
-    # GroupBy sees the frame as it is at each use, so each use groups the frame held then
+    # DataFrameGroupBy sees the frame as it is at each use, so each use groups the frame held
+    # then (a groupby with a column taken holds that column as it was, and is not live)
     live: bool = field(default=False, kw_only=True)
 
 
@@ -171,6 +172,9 @@ class Accessor(Value):
     column: Column = field(kw_only=True)
     kind: str = field(kw_only=True)
     options: tuple[tuple[str, Any], ...] = field(default=(), kw_only=True)
+    # `df.index` of a table indexed by one date key: its dt methods are the DatetimeIndex's;
+    # anything else is handed over as pandas' index of the frame (not a Series' .dt)
+    index_of: "Frame | None" = field(default=None, kw_only=True)
 
 
 @dataclass(frozen=True)
