@@ -13,7 +13,7 @@ from __future__ import annotations
 import pytest
 
 from rule_checks import check_ports, check_todo, check_unchanged
-from support import convert, differential
+from support import convert, converted_text, differential
 
 # NaN and None together, zero, negatives, duplicates, unicode text; t has no missing values.
 FRAME = """\
@@ -612,3 +612,120 @@ def test_a_function_still_called_is_kept() -> None:
     source = BANDED + 'df["band"] = df["age"].apply(band)\nfirst = band(40)\nresult = df\n'
     result = differential(source, "result", "first")
     assert "def band" in result.converted_text
+
+
+# -- row functions run on Polars rows (map_elements) ---------------------------------------------
+
+ROTA = '''
+import math
+import numpy as np
+import pandas as pd
+SHIFTS = ["a", "b"]
+RATE = 1.5
+df = pd.DataFrame({
+    "a": ["6-14", "22:00-06:00", None, "off", "8:30-12", "x-y", "12-12", "ünï-3", "", "1-2-3"],
+    "b": ["14-22", np.nan, "sick", " 6 - 14 ", "", "7-9", None, "23:30-0:15", "-", "10-11"],
+    "v": [1.5, np.nan, None, 0.0, -2.0, 3.0, 1.0, 2.0, 4.0, 0.5],
+    "n": [1, 2, 3, 4, 5, 6, 7, 8, 9, 10],
+})
+def clock(text):
+    hh, _, mm = text.strip().partition(":")
+    return int(hh) + (int(mm) / 60 if mm else 0)
+def hours(row):
+    total = 0.0
+    for col in SHIFTS:
+        shift = row[col]
+        if not isinstance(shift, str) or "-" not in shift:
+            continue
+        try:
+            start, end = shift.split("-")
+            h = clock(end) - clock(start)
+        except ValueError:
+            continue
+        if h <= 0:
+            h += 24
+        total += h * RATE
+    return total
+def tags(row):
+    out = ""
+    for c in ["a", "b"]:
+        value = row[c]
+        if value != value:
+            out += "?"
+        else:
+            out += str(value)[:2]
+    return out
+def score(row):
+    x = row["v"]
+    if math.isnan(x):
+        return -1.0
+    for _ in range(2):
+        x = x * 2
+    if x > 10:
+        return float("nan")
+    return x
+def seen(row):
+    for c in SHIFTS:
+        if row[c] == "sick":
+            return True
+    return False
+'''
+
+
+@pytest.mark.parametrize("function", ["hours", "tags", "score", "seen"])
+def test_row_functions_with_loops_run_on_polars_rows_as_on_pandas_rows(function: str) -> None:
+    # pandas is the reference: each function is run by pandas' apply(axis=1) and by Polars'
+    # map_elements on the same rows (missing text and NaN floats, text that fails int())
+    result = differential(ROTA + f'df["r"] = df.apply({function}, axis=1)\nresult = df\n')
+    assert not result.todos, result.converted_text
+    assert "map_elements" in result.converted_text
+    assert f"def {function}(row):" in result.converted_text  # still called: kept
+
+
+def test_a_row_function_on_polars_rows_needs_no_pandas() -> None:
+    text = converted_text(ROTA.replace("import numpy as np\n", "").replace("np.nan", "None")
+                          + 'df["h"] = df.apply(hours, axis=1)\ndf.to_csv("out.csv", index=False)\n')
+    assert "import pandas" not in text and "pd." not in text, text
+    assert "def pandas_row(row):" in text
+
+
+@pytest.mark.parametrize("change, why", [
+    ('RATE = 2.0\n', "a constant bound again later: Polars runs the function at collect time"),
+    ('SHIFTS.append("v")\n', "a list changed in place"),
+    ('def hours(row):\n    total = 0\n    for c in SHIFTS:\n        total += len(str(row[c]))\n'
+     '    return total\n', "defined twice"),
+])
+def test_row_functions_whose_module_changes_are_not_run_on_polars_rows(change: str, why: str) -> None:
+    result = convert(ROTA + 'df["r"] = df.apply(hours, axis=1)\n' + change + 'result = df\n')
+    assert ".map_elements(" not in result.converted_text, why
+    assert any(s.key == "frame.apply" for s in result.todos), why
+
+
+@pytest.mark.parametrize("function", [
+    # reads an int column: pandas passes it as an int, or as a float when it holds a blank
+    'def f(row):\n    t = 0.0\n    for c in ["n"]:\n        t += row[c]\n    return t\n',
+    # prints, changes a global list, reads the row's label, passes the row on
+    'def f(row):\n    for c in SHIFTS:\n        print(row[c])\n    return 1.0\n',
+    'LOG = []\ndef f(row):\n    for c in SHIFTS:\n        LOG.append(row[c])\n    return 1.0\n',
+    'def f(row):\n    for c in SHIFTS:\n        pass\n    return row.name\n',
+    'def g(r):\n    return 1.0\ndef f(row):\n    for c in SHIFTS:\n        pass\n    return g(row)\n',
+    # returns an int on some rows and a float on others: pandas' dtype depends on the data
+    'def f(row):\n    for c in SHIFTS:\n        if row[c] == "off":\n            return 1\n    return 2.5\n',
+    # may fall off the end (None)
+    'def f(row):\n    for c in SHIFTS:\n        if row[c] == "off":\n            return 1.0\n',
+    # a column that is not a literal list's
+    'def f(row):\n    total = 0.0\n    for c in row.index:\n        total += 1\n    return total\n',
+])
+def test_row_functions_polars_could_run_otherwise_stay_on_pandas(function: str) -> None:
+    result = differential(ROTA + function + 'df["r"] = df.apply(f, axis=1)\nresult = df\n')
+    assert ".map_elements(" not in result.converted_text
+    assert any(s.key == "frame.apply" for s in result.todos)
+
+
+def test_a_row_of_numbers_only_stays_on_pandas() -> None:
+    # pandas passes a row of numbers as numpy floats: 1 / 0.0 is inf there, ZeroDivisionError
+    # in Python
+    result = convert('import pandas as pd\ndf = pd.DataFrame({"v": [1.0, 0.0]})\n'
+                     'def f(row):\n    t = 0.0\n    for c in ["v"]:\n        t += 1 / row[c]\n'
+                     '    return t\ndf["r"] = df.apply(f, axis=1)\n')
+    assert ".map_elements(" not in result.converted_text

@@ -15,9 +15,11 @@ from dataclasses import replace
 import libcst as cst
 
 from porter.analysis import pandas_names
+from porter.analysis.row_functions import NotPortable, read_row_function
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
+from porter.rules.io_options import ROW_FUNCTION
 from porter.rules.ops import abs_, compare, int64_branches, int64_lit, may_hold_nan, round_
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_of, derived_column, value_dtype,
@@ -483,8 +485,11 @@ def frame_apply(call: PandasCall, ctx: RuleContext) -> Value:
     chain and whose local names are inlined; row["c"] and row.c read column c; a condition on a
     missing value takes the else branch (NaN comparisons are False in Python, null conditions
     fall through pl.when); in a row of numbers only, pandas passes every number as a float.
-    Caveats: axis=0 (a function per column), loops, other uses of the row (row.name, row[0])
-    and calls porter does not know are TODOs. Without the column types, an int column is taken
+    A function with loops or `try` blocks that reads only text and float columns, changes
+    nothing outside itself and always returns one type runs in Python on a dict of the columns
+    it reads (map_elements, 0.9; see porter.analysis.row_functions).
+    Caveats: axis=0 (a function per column), other uses of the row (row.name, row[0]) and
+    calls porter does not know are TODOs. Without the column types, an int column is taken
     to reach the function as an int (0.95).
     """
     frame = call.receiver
@@ -503,7 +508,10 @@ def frame_apply(call: PandasCall, ctx: RuleContext) -> Value:
         named = function_value(call, function, ctx)
         if named is None or not named.params.params:
             raise Unsupported("a function porter cannot read")
-        param, body = named.params.params[0].name.value, body_expression(named)
+        try:
+            param, body = named.params.params[0].name.value, body_expression(named)
+        except Unsupported as exc:
+            return _python_rows(frame, named, exc.reason, ctx)
     fields: dict[str, str] = {}
     body = body.visit(_RowFields(param, fields))  # type: ignore[assignment]
     if _uses_name(body, param):
@@ -533,6 +541,51 @@ def frame_apply(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("the function has no expression form porter knows")
     code = result.code.method("fill_null", False) if result.null_is_false else result.code
     return replace(result, code=code, element=False, name=None, null_is_false=False, sites=())
+
+
+def _python_rows(frame: Frame, function: cst.FunctionDef, reason: str, ctx: RuleContext) -> Column:
+    """A row function with no expression form (a loop, a `try`), run by Polars once per row on
+    a dict of the columns it reads, when it cannot tell that dict from pandas' row (see
+    porter.analysis.row_functions): pl.struct(cols).map_elements(f, return_dtype=...)."""
+    name = function.name.value
+    if ctx.python_module is None:
+        raise Unsupported(reason)
+    if frame.columns is None or len(frame.dtypes) != len(frame.columns) or frame.index:
+        raise Unsupported(f"{reason}; porter runs {name} on Polars rows only when it knows "
+                          f"every column's type (convert with --data)")
+    dtypes = dict(frame.dtypes)
+    if "str" not in dtypes.values():
+        # pandas passes a row of numbers as numpy floats (even the int columns' values)
+        raise Unsupported(f"{reason}; a row of numbers only reaches {name} as numpy floats")
+
+    def kinds(column: str) -> frozenset[str]:
+        dtype = dtypes.get(column)
+        if dtype == "str":
+            return frozenset({"str", "float"})  # a missing text is NaN, a float
+        if dtype == "float":
+            return frozenset({"float"})
+        raise NotPortable(f"column {column!r} ({dtype or 'not in the frame'}) is read; porter "
+                          f"passes only text and float columns to a Python row function")
+
+    try:
+        found = read_row_function(ctx.python_module, name, kinds)
+    except NotPortable as exc:
+        raise Unsupported(f"{reason}; {exc}") from None
+    returns = {"float": "Float64", "int": "Int64", "str": "String", "bool": "Boolean"}[found.returns]
+    code = emit.pl("struct", *found.columns).method(
+        "map_elements", emit.atom(f"lambda row: {name}({ROW_FUNCTION}(row))"),
+        return_dtype=emit.atom(f"pl.{returns}"))
+    if found.returns == "float":
+        code = code.method("fill_nan", None)  # a NaN it returns is pandas' missing value
+    ctx.runs_function = True
+    ctx.lower(f"runs {name} in Python once per row, on a dict of the columns it reads "
+              f"(map_elements), a missing value passed as NaN as pandas passes it; on an empty "
+              f"frame pandas calls it once with an empty row", 0.9)
+    absent = [c for c in found.columns if c not in frame.columns]
+    if absent:
+        raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
+    read = [column_of(frame, c) for c in found.columns]
+    return derived_column(read[0], code, name=None, dtype=found.returns, others=read[1:])
 
 
 class _RowFields(cst.CSTTransformer):

@@ -117,6 +117,16 @@ PANDAS_CSV_LISTS = pl.format(
 )
 """
 
+# A function, defined once at the top of a converted script, that gives a row to the script's
+# own row function as pandas' apply(axis=1) gives it: a missing value is NaN.
+ROW_FUNCTION = "pandas_row"
+ROW_DEFINITION = """\
+def pandas_row(row):
+    \"\"\"A row of the columns a function reads, as pandas' apply(axis=1) passes it: a missing
+    value is NaN (a float), not None.\"\"\"
+    return {name: float("nan") if value is None else value for name, value in row.items()}
+"""
+
 # A function, defined once at the top of a converted script, that divides as pandas divides.
 DIVIDE_FUNCTION = "pandas_div"
 DIVIDE_DEFINITION = """\

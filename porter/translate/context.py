@@ -118,6 +118,8 @@ class RuleContext:
     inside_from_pandas: bool = False  # the call is the argument of pl.from_pandas (porter's output)
     shown: bool = False  # the value is only printed or displayed (print(...), a bare cell value)
     function_def: Any = None  # name -> the script's own FunctionDef (defined once), or None
+    python_module: Any = None  # the script as Python's ast.Module (row_functions), or None
+    runs_function: bool = False  # the rewrite still calls the script's function it was given
     stacked_rows: tuple[int, ...] = ()  # the result's rows are these frames' rows, one after another
 
     def needs_review(self, reason: str) -> None:

@@ -95,6 +95,10 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     functions = discover_functions(module)
     services.functions = {f.name: f for f in functions}
     services.function_defs = function_definitions(module)
+    try:
+        services.python_module = ast.parse(module.code)
+    except (SyntaxError, ValueError, RecursionError, MemoryError):
+        services.python_module = None
     # a call of the script's own function that changes its argument in place changes it too
     for name, _, call in _changed_by_functions(module, services.functions):
         services.changed_in_place.setdefault(name, []).append(position(call)[0])

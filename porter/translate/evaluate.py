@@ -121,6 +121,7 @@ class Services:
     # ids of those apply calls (functions.ported_where_applied)
     applied_functions: dict[str, set[int]] = field(default_factory=dict)
     applied_kinds: dict[str, set[str]] = field(default_factory=dict)  # "group", "value", "row"
+    python_module: Any = None  # the script as Python's ast.Module, when it parses
 
 
 class Evaluator:
@@ -796,7 +797,8 @@ class Evaluator:
                           infinities_possible=self.services.infinities_possible,
                           inside_from_pandas=self.services.inside_from_pandas(node),
                           shown=self.services.shown(node),
-                          function_def=self.services.function_defs.get)
+                          function_def=self.services.function_defs.get,
+                          python_module=self.services.python_module)
         if key == "frame.setitem" and len(call.args) == 2 and isinstance(call.receiver, Frame) \
                 and hasattr(call.args[1], "aligned_in"):
             # a Series holding the frame's own row labels in another order: pandas puts each
@@ -832,7 +834,7 @@ class Evaluator:
         if ctx.todo_note is not None:
             message = ctx.todo_note
         site = SiteDraft(key, entry.rule or key, status, ctx.confidence, message, line, end_line)
-        if key in _APPLIES and status == "converted":
+        if key in _APPLIES and status == "converted" and not ctx.runs_function:
             function = call.args[0] if call.args else call.kwargs.get(
                 "arg" if key == "series.map" else "func")
             if isinstance(function, Opaque) and isinstance(function.node, cst.Name):

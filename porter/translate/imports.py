@@ -11,7 +11,8 @@ from porter.rules.io_options import (
     CSV_LISTS_DEFINITION,
     CSV_DURATIONS_DEFINITION, CSV_INTS_CONSTANT, CSV_INTS_DEFINITION,
     DIVIDE_DEFINITION, DIVIDE_FUNCTION,
-    NA_CONSTANT, PANDAS_NA_TOKENS, QUANTILE_DEFINITION, QUANTILE_FUNCTION,
+    NA_CONSTANT, PANDAS_NA_TOKENS, QUANTILE_DEFINITION, QUANTILE_FUNCTION, ROW_DEFINITION,
+    ROW_FUNCTION,
     UNSTACKED_DEFINITION, UNSTACKED_FUNCTION,
 )
 
@@ -93,7 +94,8 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
     for function, definition in ((DIVIDE_FUNCTION, DIVIDE_DEFINITION),
                                  (QUANTILE_FUNCTION, QUANTILE_DEFINITION),
                                  (UNSTACKED_FUNCTION, UNSTACKED_DEFINITION),
-                                 (CATEGORY_COUNTS_FUNCTION, CATEGORY_COUNTS_DEFINITION)):
+                                 (CATEGORY_COUNTS_FUNCTION, CATEGORY_COUNTS_DEFINITION),
+                                 (ROW_FUNCTION, ROW_DEFINITION)):
         if function not in used or _defines(module, function):
             continue
         body = _insert_after_imports(body, _function(definition))

@@ -93,8 +93,9 @@ rota = rota.with_columns(
 )
 rota = rota.rename({"boats_through": "boats"}, strict=False).collect().lazy()
 
-# TODO(porter): frame.apply: a loop or a block that only a Python call can run; write the function
-#   as column expressions (pl.when / arithmetic); map_elements is a last resort
+# TODO(porter): frame.apply: a loop or a block that only a Python call can run; porter runs
+#   hours_on_rota on Polars rows only when it knows every column's type (convert with --data); write
+#   the function as column expressions (pl.when / arithmetic); map_elements is a last resort
 # TODO(porter): frame.setitem: a Series computed by pandas, row for row from this frame, is put back
 #   by position; port the computation to an expression
 rota = rota.with_columns(
