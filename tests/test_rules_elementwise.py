@@ -66,8 +66,8 @@ def test_ports(before: str, expected: str) -> None:
 
 
 TODOS = [
-    pytest.param('def double(x):\n    for _ in range(2):\n        x = x * 2\n    return x\nr = df["v"].map(double)',
-                 "series.map", id="named function with a loop"),
+    pytest.param('def double(x):\n    for _ in range(2):\n        x = x * 2\n    return x\nr = df["n"].map(double)',
+                 "series.map", id="named function with a loop on an int column"),
     pytest.param('r = df["v"].apply(np.sqrt)', "series.apply", id="numpy function"),
     pytest.param('r = df["k"].apply({"a": 1}.get)', "series.apply", id="bound method"),
     pytest.param('r = df["k"].map(lambda x: codes[x] if x in codes else "?")', "series.map",
@@ -729,3 +729,67 @@ def test_a_row_of_numbers_only_stays_on_pandas() -> None:
                      'def f(row):\n    t = 0.0\n    for c in ["v"]:\n        t += 1 / row[c]\n'
                      '    return t\ndf["r"] = df.apply(f, axis=1)\n')
     assert ".map_elements(" not in result.converted_text
+
+
+VALUES = '''
+import numpy as np
+import pandas as pd
+UNITS = [("fathoms", 1.8288), ("ft", 0.3048), ("km", 1000.0), ("m", 1.0)]
+df = pd.DataFrame({
+    "length": ["120 m", "30 fathoms", None, "45,5 m", "tbc", "2 km", np.nan, "٣ m", "", " 7 "],
+    "v": [1.5, np.nan, None, 0.0, -2.0, 3.0, 1.0, 2.0, 4.0, 0.5],
+    "n": [1, 2, 3, 4, 5, 6, 7, 8, 9, 10],
+})
+def to_metres(text):
+    if not isinstance(text, str):
+        return None
+    t = str(text).strip().lower().replace(",", ".")
+    factor = 1.0
+    for unit, per in UNITS:
+        if t.endswith(unit):
+            t = t[: -len(unit)].strip()
+            factor = per
+            break
+    try:
+        return round(float(t) * factor, 2)
+    except ValueError:
+        return None
+def shout(text):
+    out = ""
+    for ch in str(text):
+        out += ch.upper() if ch.isalpha() else "_"
+    return out
+def halves(x):
+    n = 0
+    while x > 1:
+        x = x / 2
+        n += 1
+    return n
+'''
+
+
+@pytest.mark.parametrize("expr", [
+    'df["length"].apply(to_metres)',
+    'df["length"].map(to_metres)',
+    'df["length"].map(shout)',  # str(NaN) is "nan": a missing value reaches it as NaN
+    'df["length"].map(shout, na_action="ignore")',
+    'df["v"].apply(halves)',
+])
+def test_value_functions_with_loops_run_on_polars_values_as_on_pandas_values(expr: str) -> None:
+    # pandas is the reference: the same function run by Series.apply / map and by map_elements
+    result = differential(VALUES + f'df["r"] = {expr}\nresult = df\n')
+    assert not result.todos, result.converted_text
+    assert ".map_elements(" in result.converted_text
+
+
+@pytest.mark.parametrize("source", [
+    'df["r"] = df["n"].apply(halves)\n',  # an int column: pandas' values may be floats
+    'def f(x):\n    for _ in range(2):\n        if x == "tbc":\n            return 1\n    return None\n'
+    'df["r"] = df["length"].apply(f)\n',  # int or None: pandas makes int64 or float64
+    'SEEN = []\ndef f(x):\n    for _ in range(1):\n        SEEN.append(x)\n    return 1.0\n'
+    'df["r"] = df["length"].apply(f)\n',
+])
+def test_value_functions_polars_could_run_otherwise_stay_on_pandas(source: str) -> None:
+    result = differential(VALUES + source + 'result = df\n')
+    assert ".map_elements(" not in result.converted_text
+    assert any(s.key == "series.apply" for s in result.todos)

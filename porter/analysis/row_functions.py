@@ -57,7 +57,7 @@ _MATH_TO_FLOAT = frozenset({
     "acos", "atan", "atan2", "hypot", "fabs", "fmod", "copysign", "radians", "degrees",
 })
 UNKNOWN = "?"
-RESULT_TYPES = frozenset({"float", "int", "str", "bool"})
+RESULT_TYPES = frozenset({"float", "int", "str", "bool"})  # constants of these types are read
 
 
 class NotPortable(Exception):
@@ -65,12 +65,23 @@ class NotPortable(Exception):
 
 
 @dataclass(frozen=True)
-class RowFunction:
-    """A row function that runs the same on a dict of the columns it reads."""
+class PythonFunction:
+    """The script's function that runs the same on Polars' values as on pandas' values."""
 
     name: str
-    columns: tuple[str, ...]  # the columns it reads, in the order first read
-    returns: str  # "float", "int", "str" or "bool": the type of every value it returns
+    columns: tuple[str, ...]  # a row function: the columns it reads, in the order first read
+    returns: str  # the result's Polars type: "Float64", "Int64", "String" or "Boolean"
+    may_return_none: bool = False  # pandas makes NaN of it (an object column if every value is)
+
+
+# what the function may return -> the Polars type of pandas' result: a float or a text with
+# None is a float or text column with missing values; an int with None is float or int
+# depending on the data, a True/False with None an object column: those are not read
+_RESULTS = {
+    frozenset({"float"}): "Float64", frozenset({"int"}): "Int64", frozenset({"str"}): "String",
+    frozenset({"bool"}): "Boolean", frozenset({"float", "none"}): "Float64",
+    frozenset({"str", "none"}): "String",
+}
 
 
 class ModuleFacts:
@@ -158,28 +169,48 @@ def _changed_in_place(module: ast.Module) -> set[str]:
 
 
 def read_row_function(module: ast.Module, name: str,
-                      column_kinds: Callable[[str], frozenset[str]]) -> RowFunction:
+                      column_kinds: Callable[[str], frozenset[str]]) -> PythonFunction:
     """Check the script's function `name` for a run on Polars rows (see the module's text);
     `column_kinds(c)` gives the Python types pandas passes for column c ("str", "float"; a
     missing value is a float NaN). Raises NotPortable with the reason."""
     facts = ModuleFacts(module)
+    function = _one_parameter(facts, name)
+    row = function.args.args[0].arg
+    columns = _row_columns(function, row, facts)
+    _check_pure(function, facts, set())
+    kinds = {c: column_kinds(c) for c in columns}
+    returns = _return_kinds(function, facts, {row: frozenset({UNKNOWN})}, kinds, row, set())
+    return PythonFunction(name, columns, _result(name, returns), "none" in returns)
+
+
+def read_value_function(module: ast.Module, name: str, kinds: frozenset[str]) -> PythonFunction:
+    """Check the script's function `name` for a run on each value of a Polars column, given
+    the Python types pandas passes it (`kinds`, as for read_row_function)."""
+    facts = ModuleFacts(module)
+    function = _one_parameter(facts, name)
+    _check_pure(function, facts, set())
+    returns = _return_kinds(function, facts, {function.args.args[0].arg: kinds}, {}, None, set())
+    return PythonFunction(name, (), _result(name, returns), "none" in returns)
+
+
+def _one_parameter(facts: ModuleFacts, name: str) -> ast.FunctionDef:
     function = facts.functions.get(name)
     if function is None:
         raise NotPortable(f"{name} is not a function defined once in the script")
     args = function.args
     if args.vararg or args.kwarg or args.kwonlyargs or args.posonlyargs or len(args.args) != 1 \
             or args.defaults:
-        raise NotPortable(f"{name} does not take exactly one row")
-    row = args.args[0].arg
-    columns = _row_columns(function, row, facts)
-    _check_pure(function, facts, set())
-    kinds = {c: column_kinds(c) for c in columns}
-    returns = _return_kinds(function, facts, {row: frozenset({UNKNOWN})}, kinds, row, set())
-    if len(returns) != 1 or not returns <= RESULT_TYPES:
+        raise NotPortable(f"{name} does not take exactly one value")
+    return function
+
+
+def _result(name: str, returns: frozenset[str]) -> str:
+    found = _RESULTS.get(returns)
+    if found is None:
         shown = ", ".join(sorted(k for k in returns if k != UNKNOWN))
         raise NotPortable(f"what {name} returns is not always of one type porter can read"
                           + (f" ({shown})" if shown else ""))
-    return RowFunction(name, columns, next(iter(returns)))
+    return found
 
 
 def _body_nodes(function: ast.FunctionDef) -> Iterator[ast.AST]:
@@ -315,8 +346,10 @@ def _return_kinds(function: ast.FunctionDef, facts: ModuleFacts,
         return frozenset({UNKNOWN, "none"})
     active = active | {function.name}
     local = _locals(function)
-    names: dict[str, frozenset[str]] = {p: param_kinds.get(p, frozenset({UNKNOWN}))
-                                        for p in (a.arg for a in function.args.args)}
+    # a local name holds nothing known until an assignment is read (the fixpoint grows it)
+    names: dict[str, frozenset[str]] = {name: frozenset() for name in local}
+    names.update({p: param_kinds.get(p, frozenset({UNKNOWN}))
+                  for p in (a.arg for a in function.args.args)})
     writes: list[tuple[str, ast.AST]] = []
     for node in _body_nodes(function):
         if isinstance(node, ast.Assign):
@@ -331,17 +364,29 @@ def _return_kinds(function: ast.FunctionDef, facts: ModuleFacts,
                                                       op=node.op, right=node.value)))
         elif isinstance(node, ast.AnnAssign) and isinstance(node.target, ast.Name) and node.value:
             writes.append((node.target.id, node.value))
-    loop_names = {n.id for node in _body_nodes(function) if isinstance(node, (ast.For, ast.comprehension))
-                  for n in ast.walk(node.target) if isinstance(n, ast.Name)}
-    other = {n.id for node in _body_nodes(function)
-             if isinstance(node, (ast.ExceptHandler, ast.NamedExpr))
-             for n in ast.walk(node) if isinstance(n, ast.Name) and isinstance(n.ctx, ast.Store)}
-    for name in (loop_names | other) & local:
+    loops: list[tuple[str, ast.AST]] = []  # `for ch in text`: ch is a text too
+    unknown: set[str] = set()
+    for node in _body_nodes(function):
+        if isinstance(node, (ast.For, ast.comprehension)) and isinstance(node.target, ast.Name):
+            loops.append((node.target.id, node.iter))
+        elif isinstance(node, (ast.For, ast.comprehension)):
+            unknown |= {n.id for n in ast.walk(node.target) if isinstance(n, ast.Name)}
+        elif isinstance(node, (ast.ExceptHandler, ast.NamedExpr, ast.With)):
+            unknown |= {n.id for n in ast.walk(node) if isinstance(n, ast.Name)
+                        and isinstance(n.ctx, ast.Store)}
+    for name in unknown & local:
         names[name] = frozenset({UNKNOWN})
     for _ in range(20):
         before = dict(names)
         for name, value in writes:
             kinds = _kinds(value, names, facts, columns, row, active)
+            names[name] = names.get(name, frozenset()) | kinds
+        for name, iterable in loops:
+            over = _kinds(iterable, names, facts, columns, row, active)
+            is_range = isinstance(iterable, ast.Call) and isinstance(iterable.func, ast.Name) \
+                and iterable.func.id == "range" and "range" not in facts.bound
+            kinds = frozenset({"str"}) if over == frozenset({"str"}) \
+                else frozenset({"int"}) if is_range else frozenset({UNKNOWN})
             names[name] = names.get(name, frozenset()) | kinds
         if names == before:
             break
@@ -363,6 +408,9 @@ def _always_returns(body: list[ast.stmt]) -> bool:
         return True
     if isinstance(last, ast.If):
         return _always_returns(last.body) and _always_returns(last.orelse)
+    if isinstance(last, ast.Try) and not last.finalbody:
+        body = last.body + last.orelse
+        return _always_returns(body) and all(_always_returns(h.body) for h in last.handlers)
     return False
 
 
@@ -399,6 +447,8 @@ def _kinds(node: ast.AST, names: dict[str, frozenset[str]], facts: ModuleFacts,
         return found or unknown
     if isinstance(node, ast.Subscript) and k(node.value) == frozenset({"str"}):
         return frozenset({"str"})  # a character or a slice of a text
+    if isinstance(node, (ast.Subscript, ast.Attribute)) and not k(node.value):
+        return frozenset()  # not known yet: the fixpoint comes back to it
     if isinstance(node, ast.BinOp):
         out: set[str] = set()
         for a in k(node.left):
@@ -495,6 +545,8 @@ def _call_kinds(node: ast.Call, k: Callable[[ast.AST], frozenset[str]], facts: M
                 return frozenset({"float"})
             return unknown
         receiver = k(func.value)
+        if not receiver:
+            return frozenset()  # not known yet: the fixpoint comes back to it
         if receiver == frozenset({"str"}):
             if func.attr in _STR_TO_STR:
                 return frozenset({"str"})

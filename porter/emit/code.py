@@ -270,8 +270,19 @@ def _split_argument(arg: str, indent: str, width: int, min_steps: int = 2) -> li
     if len(indent) + len(head) > width:
         split = _split_call(head[len(keyword):], keyword, "") or _split_operation(head[len(keyword):], keyword)
         heads = split.splitlines() if split else heads
-    return [*(indent + line for line in heads), *(f"{indent}{step}" for step in steps[:-1]),
-            f"{indent}{steps[-1]},"]
+    lines = [indent + line for line in heads]
+    for i, step in enumerate(steps):
+        end = "," if i == len(steps) - 1 else ""
+        call = _call_parts("_", step) if len(indent) + len(step) + len(end) > width else None
+        if call is None:
+            lines.append(f"{indent}{step}{end}")
+            continue
+        method, args = call  # a step too long for its line: one argument per line
+        lines.append(f"{indent}{method}(")
+        for arg in args:
+            lines += _split_argument(arg, indent + "    ", width)
+        lines.append(f"{indent}){end}")
+    return lines
 
 
 def _split_operation(text: str, prefix: str) -> str | None:

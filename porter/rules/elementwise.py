@@ -15,7 +15,9 @@ from dataclasses import replace
 import libcst as cst
 
 from porter.analysis import pandas_names
-from porter.analysis.row_functions import NotPortable, read_row_function
+from porter.analysis.row_functions import (
+    NotPortable, PythonFunction, read_row_function, read_value_function,
+)
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
@@ -186,9 +188,13 @@ def map_(call: PandasCall, ctx: RuleContext) -> Value:
     """s.map(dict) -> .replace_strict(dict, default=None); s.map(lambda x: ...) / s.apply(lambda
     x: ...) -> one expression.
 
-    Handles: values missing from the dict become missing (pandas map); lambdas become pl.when /
-    str.* / arithmetic expressions, never a per-row Python call.
-    Caveats: named functions and lambdas with calls porter does not know are TODOs.
+    Handles: values missing from the dict become missing (pandas map); lambdas and the
+    script's own functions become pl.when / str.* / arithmetic expressions. A function with
+    loops or `try` blocks on a text or float column runs in Python on each value
+    (map_elements, 0.9) when it cannot tell Polars' values from pandas'
+    (porter.analysis.row_functions).
+    Caveats: lambdas with calls porter does not know, and functions Polars could run otherwise,
+    are TODOs.
     """
     column = call.receiver
     assert isinstance(column, Column)
@@ -217,9 +223,13 @@ def map_(call: PandasCall, ctx: RuleContext) -> Value:
         param = named.params.params[0].name.value if named.params.params else None
         if param is None:
             raise Unsupported("a function without a parameter")
-        lambda_node = cst.Lambda(params=cst.Parameters(params=[cst.Param(cst.Name(param))]),
-                                 body=body_expression(named))
-        result = element_lambda(lambda_node, column, ctx)
+        try:
+            lambda_node = cst.Lambda(params=cst.Parameters(params=[cst.Param(cst.Name(param))]),
+                                     body=body_expression(named))
+            result = element_lambda(lambda_node, column, ctx)
+        except Unsupported as exc:
+            return _python_values(column, named, exc.reason,
+                                  call.const("na_action", None, None) == "ignore", ctx)
         if call.const("na_action", None, None) == "ignore":
             return replace(result, code=emit.when(column.code.method("is_not_null"), result.code))
         return result
@@ -571,13 +581,10 @@ def _python_rows(frame: Frame, function: cst.FunctionDef, reason: str, ctx: Rule
         found = read_row_function(ctx.python_module, name, kinds)
     except NotPortable as exc:
         raise Unsupported(f"{reason}; {exc}") from None
-    returns = {"float": "Float64", "int": "Int64", "str": "String", "bool": "Boolean"}[found.returns]
     code = emit.pl("struct", *found.columns).method(
         "map_elements", emit.atom(f"lambda row: {name}({ROW_FUNCTION}(row))"),
-        return_dtype=emit.atom(f"pl.{returns}"))
-    if found.returns == "float":
-        code = code.method("fill_nan", None)  # a NaN it returns is pandas' missing value
-    ctx.runs_function = True
+        return_dtype=emit.atom(f"pl.{found.returns}"))
+    code = _python_result(code, found, ctx)
     ctx.lower(f"runs {name} in Python once per row, on a dict of the columns it reads "
               f"(map_elements), a missing value passed as NaN as pandas passes it; on an empty "
               f"frame pandas calls it once with an empty row", 0.9)
@@ -585,7 +592,48 @@ def _python_rows(frame: Frame, function: cst.FunctionDef, reason: str, ctx: Rule
     if absent:
         raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
     read = [column_of(frame, c) for c in found.columns]
-    return derived_column(read[0], code, name=None, dtype=found.returns, others=read[1:])
+    dtype = {"Float64": "float", "Int64": "int", "String": "str", "Boolean": "bool"}[found.returns]
+    return derived_column(read[0], code, name=None, dtype=dtype, others=read[1:])
+
+
+def _python_values(column: Column, function: cst.FunctionDef, reason: str, skip_missing: bool,
+                   ctx: RuleContext) -> Column:
+    """A value function with no expression form (a loop, a `try`), run by Polars on each value
+    when it cannot tell Polars' values from pandas' (see porter.analysis.row_functions):
+    map_elements(f, return_dtype=...), a missing value passed as NaN as pandas passes it."""
+    name = function.name.value
+    kinds = {"str": frozenset({"str", "float"}), "float": frozenset({"float"})}.get(column.dtype or "")
+    if ctx.python_module is None or kinds is None:
+        raise Unsupported(f"{reason}; porter runs {name} on Polars values only on a text or float "
+                          f"column whose type it knows (convert with --data)")
+    try:
+        found = read_value_function(ctx.python_module, name, kinds)
+    except NotPortable as exc:
+        raise Unsupported(f"{reason}; {exc}") from None
+    values = column.code.method("fill_nan", None) if column.dtype == "float" else column.code
+    if skip_missing:  # na_action="ignore": pandas leaves a missing value missing
+        code = values.method("map_elements", emit.atom(name),
+                             return_dtype=emit.atom(f"pl.{found.returns}"))
+    else:
+        code = values.method("map_elements",
+                             emit.atom(f'lambda value: {name}(float("nan") if value is None else value)'),
+                             return_dtype=emit.atom(f"pl.{found.returns}"), skip_nulls=False)
+    code = _python_result(code, found, ctx)
+    ctx.lower(f"runs {name} in Python once per value (map_elements), a missing value passed as "
+              f"NaN as pandas passes it", 0.9)
+    dtype = {"Float64": "float", "Int64": "int", "String": "str", "Boolean": "bool"}[found.returns]
+    return derived_column(column, code, name=column.name, dtype=dtype)
+
+
+def _python_result(code: Code, found: PythonFunction, ctx: RuleContext) -> Code:
+    """The column a Python function's results make, as pandas makes it."""
+    ctx.runs_function = True
+    if found.returns == "Float64":
+        code = code.method("fill_nan", None)  # a NaN it returns is pandas' missing value
+    if found.may_return_none:
+        ctx.lower(f"{found.name} may return None: where it does for every value, pandas makes an "
+                  f"object column of None", 0.9)
+    return code
 
 
 class _RowFields(cst.CSTTransformer):

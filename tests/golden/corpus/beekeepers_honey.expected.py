@@ -146,21 +146,39 @@ def main():
 
     stats = pl.concat([
         harvests.select("honey_kg", "moisture_pct", "frames", "varroa_per_100")
-        .select(pl.lit("count").alias("index"), pl.selectors.numeric().count().cast(pl.Float64)),
+        .select(
+            pl.lit("count").alias("index"),
+            pl.selectors.numeric().count().cast(pl.Float64),
+        ),
         harvests.select("honey_kg", "moisture_pct", "frames", "varroa_per_100")
         .select(pl.lit("mean").alias("index"), pl.selectors.numeric().mean()),
         harvests.select("honey_kg", "moisture_pct", "frames", "varroa_per_100")
         .select(pl.lit("std").alias("index"), pl.selectors.numeric().std()),
         harvests.select("honey_kg", "moisture_pct", "frames", "varroa_per_100")
-        .select(pl.lit("min").alias("index"), pl.selectors.numeric().min().cast(pl.Float64)),
+        .select(
+            pl.lit("min").alias("index"),
+            pl.selectors.numeric().min().cast(pl.Float64),
+        ),
         harvests.select("honey_kg", "moisture_pct", "frames", "varroa_per_100")
-        .select(pl.lit("25%").alias("index"), pl.selectors.numeric().quantile(0.25, "linear")),
+        .select(
+            pl.lit("25%").alias("index"),
+            pl.selectors.numeric().quantile(0.25, "linear"),
+        ),
         harvests.select("honey_kg", "moisture_pct", "frames", "varroa_per_100")
-        .select(pl.lit("50%").alias("index"), pl.selectors.numeric().quantile(0.5, "linear")),
+        .select(
+            pl.lit("50%").alias("index"),
+            pl.selectors.numeric().quantile(0.5, "linear"),
+        ),
         harvests.select("honey_kg", "moisture_pct", "frames", "varroa_per_100")
-        .select(pl.lit("75%").alias("index"), pl.selectors.numeric().quantile(0.75, "linear")),
+        .select(
+            pl.lit("75%").alias("index"),
+            pl.selectors.numeric().quantile(0.75, "linear"),
+        ),
         harvests.select("honey_kg", "moisture_pct", "frames", "varroa_per_100")
-        .select(pl.lit("max").alias("index"), pl.selectors.numeric().max().cast(pl.Float64)),
+        .select(
+            pl.lit("max").alias("index"),
+            pl.selectors.numeric().max().cast(pl.Float64),
+        ),
     ])
     (
         stats

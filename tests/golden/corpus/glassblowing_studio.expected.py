@@ -84,7 +84,14 @@ log = log.sort(
 )
 log = log.with_columns(
     temp_smooth=pl.when(pl.col("furnace").is_not_null())
-    .then(pl.col("temp_c").cast(pl.Float64).replace([float("inf"), float("-inf")], None).ewm_mean(span=4, ignore_nulls=True).forward_fill().over("furnace")),
+    .then(
+        pl.col("temp_c")
+        .cast(pl.Float64)
+        .replace([float("inf"), float("-inf")], None)
+        .ewm_mean(span=4, ignore_nulls=True)
+        .forward_fill()
+        .over("furnace"),
+    ),
 )
 log = log.with_columns(temp_smooth=pl.col("temp_smooth").round(1))
 log = (

@@ -119,21 +119,39 @@ rota = (
 print(
     pl.concat([
         rota.select("hours", "boats_per_hour")
-        .select(pl.lit("count").alias("index"), pl.selectors.numeric().count().cast(pl.Float64)),
+        .select(
+            pl.lit("count").alias("index"),
+            pl.selectors.numeric().count().cast(pl.Float64),
+        ),
         rota.select("hours", "boats_per_hour")
         .select(pl.lit("mean").alias("index"), pl.selectors.numeric().mean()),
         rota.select("hours", "boats_per_hour")
         .select(pl.lit("std").alias("index"), pl.selectors.numeric().std()),
         rota.select("hours", "boats_per_hour")
-        .select(pl.lit("min").alias("index"), pl.selectors.numeric().min().cast(pl.Float64)),
+        .select(
+            pl.lit("min").alias("index"),
+            pl.selectors.numeric().min().cast(pl.Float64),
+        ),
         rota.select("hours", "boats_per_hour")
-        .select(pl.lit("25%").alias("index"), pl.selectors.numeric().quantile(0.25, "linear")),
+        .select(
+            pl.lit("25%").alias("index"),
+            pl.selectors.numeric().quantile(0.25, "linear"),
+        ),
         rota.select("hours", "boats_per_hour")
-        .select(pl.lit("50%").alias("index"), pl.selectors.numeric().quantile(0.5, "linear")),
+        .select(
+            pl.lit("50%").alias("index"),
+            pl.selectors.numeric().quantile(0.5, "linear"),
+        ),
         rota.select("hours", "boats_per_hour")
-        .select(pl.lit("75%").alias("index"), pl.selectors.numeric().quantile(0.75, "linear")),
+        .select(
+            pl.lit("75%").alias("index"),
+            pl.selectors.numeric().quantile(0.75, "linear"),
+        ),
         rota.select("hours", "boats_per_hour")
-        .select(pl.lit("max").alias("index"), pl.selectors.numeric().max().cast(pl.Float64)),
+        .select(
+            pl.lit("max").alias("index"),
+            pl.selectors.numeric().max().cast(pl.Float64),
+        ),
     ])
     .collect(),
 )

@@ -117,7 +117,9 @@ unpaid = (
     .rename(lambda c: c + "_x" if c in ("warden",) else c)
     .join(
         huts.select("hut", "warden")
-        .rename(lambda c, other=stays.filter(pl.col("paid_eur").is_null() & pl.col("half_board")).collect_schema().names(): c + "_y" if c in other and c not in ("hut",) else c),
+        .rename(
+            lambda c, other=stays.filter(pl.col("paid_eur").is_null() & pl.col("half_board")).collect_schema().names(): c + "_y" if c in other and c not in ("hut",) else c,
+        ),
         on="hut",
         how="left",
         nulls_equal=True,

@@ -81,7 +81,13 @@ per_show = (
         pl.col("seat_zone").drop_nulls().n_unique().cast(pl.Float64).alias("zones"),
         pl.col("tickets").max().cast(pl.Float64).alias("biggest_party"),
         pl.when(pl.col("tickets").sum() > 0)
-        .then((pl.col("tickets").filter(pl.col("seat_zone") == "loge").sum() / pl.col("tickets").sum()).fill_nan(None))
+        .then(
+            (
+                pl.col("tickets").filter(pl.col("seat_zone") == "loge").sum()
+                / pl.col("tickets").sum()
+            )
+            .fill_nan(None),
+        )
         .otherwise(None)
         .alias("loge_share"),
     )

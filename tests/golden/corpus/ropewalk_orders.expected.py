@@ -99,7 +99,9 @@ orders = (
     .lazy()
 )
 
-# TODO(porter): series.apply: a loop or a block that only a Python call can run
+# TODO(porter): series.apply: a loop or a block that only a Python call can run; porter runs
+#   to_metres on Polars values only on a text or float column whose type it knows (convert with
+#   --data)
 # TODO(porter): frame.setitem: a Series computed by pandas, row for row from this frame, is put back
 #   by position; port the computation to an expression
 orders = (
@@ -219,21 +221,39 @@ loads = loads.with_columns(metres=pl.col("metres").round(2))
 print(
     pl.concat([
         priced.select("metres", "kg", "metres_per_kg")
-        .select(pl.lit("count").alias("index"), pl.selectors.numeric().count().cast(pl.Float64)),
+        .select(
+            pl.lit("count").alias("index"),
+            pl.selectors.numeric().count().cast(pl.Float64),
+        ),
         priced.select("metres", "kg", "metres_per_kg")
         .select(pl.lit("mean").alias("index"), pl.selectors.numeric().mean()),
         priced.select("metres", "kg", "metres_per_kg")
         .select(pl.lit("std").alias("index"), pl.selectors.numeric().std()),
         priced.select("metres", "kg", "metres_per_kg")
-        .select(pl.lit("min").alias("index"), pl.selectors.numeric().min().cast(pl.Float64)),
+        .select(
+            pl.lit("min").alias("index"),
+            pl.selectors.numeric().min().cast(pl.Float64),
+        ),
         priced.select("metres", "kg", "metres_per_kg")
-        .select(pl.lit("25%").alias("index"), pl.selectors.numeric().quantile(0.25, "linear")),
+        .select(
+            pl.lit("25%").alias("index"),
+            pl.selectors.numeric().quantile(0.25, "linear"),
+        ),
         priced.select("metres", "kg", "metres_per_kg")
-        .select(pl.lit("50%").alias("index"), pl.selectors.numeric().quantile(0.5, "linear")),
+        .select(
+            pl.lit("50%").alias("index"),
+            pl.selectors.numeric().quantile(0.5, "linear"),
+        ),
         priced.select("metres", "kg", "metres_per_kg")
-        .select(pl.lit("75%").alias("index"), pl.selectors.numeric().quantile(0.75, "linear")),
+        .select(
+            pl.lit("75%").alias("index"),
+            pl.selectors.numeric().quantile(0.75, "linear"),
+        ),
         priced.select("metres", "kg", "metres_per_kg")
-        .select(pl.lit("max").alias("index"), pl.selectors.numeric().max().cast(pl.Float64)),
+        .select(
+            pl.lit("max").alias("index"),
+            pl.selectors.numeric().max().cast(pl.Float64),
+        ),
     ])
     .with_columns(pl.selectors.float().round(2))
     .collect(),

@@ -228,7 +228,9 @@ late = (
     .rename(lambda c: c + "_x" if c in ("deposit",) else c)
     .join(
         per_tool.select("tool", "deposit")
-        .rename(lambda c, other=late.collect_schema().names(): c + "_y" if c in other and c not in ("tool",) else c),
+        .rename(
+            lambda c, other=late.collect_schema().names(): c + "_y" if c in other and c not in ("tool",) else c,
+        ),
         on="tool",
         how="left",
         nulls_equal=True,
