@@ -54,7 +54,11 @@ class Code:
         return Code(f"{self.wrapped(ATOM)}.{name}")
 
     def index(self, key: object) -> Code:
-        return Code(f"{self.wrapped(ATOM)}[{render(key)}]")
+        text = f"{self.wrapped(ATOM)}[{render(key)}]"
+        if self.prec >= ATOM and self.base is not None and self.steps:
+            # a chain's last step indexed (`.to_numpy()[0]`): still a chain, laid out by steps
+            return Code(text, ATOM, self.base, (*self.steps[:-1], self.steps[-1] + f"[{render(key)}]"))
+        return Code(text)
 
 
 def atom(text: str) -> Code:
@@ -344,6 +348,10 @@ def _chain_parts(arg: Any, min_steps: int = 2) -> tuple[str, list[str]] | None:
     keyword = arg.keyword
     node: cst.BaseExpression = arg.value
     steps: list[str] = []
+    indexed = ""  # `.to_numpy()[0]`: the index stays on the last step
+    if isinstance(node, cst.Subscript) and not node.lpar and isinstance(node.value, cst.Call):
+        indexed = module.code_for_node(node)[len(module.code_for_node(node.value)):]
+        node = node.value
     while isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute) \
             and not node.lpar and not node.func.lpar:
         inner = node.func.value
@@ -363,6 +371,7 @@ def _chain_parts(arg: Any, min_steps: int = 2) -> tuple[str, list[str]] | None:
         node = inner
     if len(steps) < min_steps:
         return None
+    steps[-1] += indexed
     head = module.code_for_node(node)
     if keyword is not None:
         head = f"{keyword.value}={head}"

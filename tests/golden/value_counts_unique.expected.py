@@ -38,7 +38,10 @@ branches = (
 )
 print(
     len(branches),
-    loans.select(pl.col("member").drop_nulls().n_unique().cast(pl.Int64)).collect().to_series().to_numpy()[0],
+    loans.select(pl.col("member").drop_nulls().n_unique().cast(pl.Int64))
+    .collect()
+    .to_series()
+    .to_numpy()[0],
 )
 per_branch = (
     loans

@@ -223,7 +223,10 @@ def main():
     print(
         suspicious.select(pl.len()).collect().item(),
         "suspicious readings;",
-        readings.select(pl.col("exposed_cm").is_null().sum().cast(pl.Int64)).collect().to_series().to_numpy()[0],
+        readings.select(pl.col("exposed_cm").is_null().sum().cast(pl.Int64))
+        .collect()
+        .to_series()
+        .to_numpy()[0],
         "missing",
     )
 

@@ -56,10 +56,24 @@ gaffers = pl.scan_csv(
     null_values=PANDAS_NA_VALUES,
     infer_schema_length=None,
 )
-ids = log.select(pl.col("reading_id").drop_nulls().n_unique().cast(pl.Int64)).collect().to_series().to_numpy()[0]
+ids = (
+    log
+    .select(pl.col("reading_id").drop_nulls().n_unique().cast(pl.Int64))
+    .collect()
+    .to_series()
+    .to_numpy()[0]
+)
 print(f"{log.select(pl.len()).collect().item()} readings, {ids} distinct ids")
 
-dupes = log.select(pl.len().cast(pl.Int64) - pl.col("reading_id").drop_nulls().n_unique().cast(pl.Int64)).collect().to_series().to_numpy()[0]
+dupes = (
+    log
+    .select(
+        pl.len().cast(pl.Int64) - pl.col("reading_id").drop_nulls().n_unique().cast(pl.Int64),
+    )
+    .collect()
+    .to_series()
+    .to_numpy()[0]
+)
 print("readings sent twice by the logger:", dupes)
 log = log.with_columns(furnace=clean_text(pl.col("furnace")))
 log = log.with_columns(gaffer=pl.col("gaffer").str.strip_chars().str.to_titlecase())
@@ -72,7 +86,13 @@ log = (
     .collect()
     .lazy()
 )
-bad = log.select(pl.col("read_at").is_null().sum().cast(pl.Int64)).collect().to_series().to_numpy()[0]
+bad = (
+    log
+    .select(pl.col("read_at").is_null().sum().cast(pl.Int64))
+    .collect()
+    .to_series()
+    .to_numpy()[0]
+)
 print("stamps that would not parse:", bad)
 log = log.drop_nulls("read_at")
 

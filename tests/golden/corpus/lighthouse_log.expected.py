@@ -165,7 +165,10 @@ print(by_keeper.head(8).collect())
 print(
     "estimated dips:",
     int(
-        log.select(pl.col("estimated").sum().cast(pl.Int64)).collect().to_series().to_numpy()[0],
+        log.select(pl.col("estimated").sum().cast(pl.Int64))
+        .collect()
+        .to_series()
+        .to_numpy()[0],
     ),
     "of",
     log.select(pl.len()).collect().item(),

@@ -84,7 +84,12 @@ print(f"rota lines: {rota.select(pl.len()).collect().item()}")
 
 print(
     "rota ids on two lines:",
-    rota.select(pl.len().cast(pl.Int64) - pl.col("rota_id").drop_nulls().n_unique().cast(pl.Int64)).collect().to_series().to_numpy()[0],
+    rota.select(
+        pl.len().cast(pl.Int64) - pl.col("rota_id").drop_nulls().n_unique().cast(pl.Int64),
+    )
+    .collect()
+    .to_series()
+    .to_numpy()[0],
 )
 rota = rota.with_columns(keeper=pl.col("keeper").str.strip_chars().str.to_titlecase())
 rota = rota.with_columns(lock=pl.col("lock").str.strip_chars())

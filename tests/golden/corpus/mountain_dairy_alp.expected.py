@@ -54,7 +54,10 @@ print(
     "milk lines:",
     milk.select(pl.len()).collect().item(),
     "| blank litres:",
-    milk.select(pl.col("litres").is_null().sum().cast(pl.Int64)).collect().to_series().to_numpy()[0],
+    milk.select(pl.col("litres").is_null().sum().cast(pl.Int64))
+    .collect()
+    .to_series()
+    .to_numpy()[0],
 )
 
 # TODO(porter): frame.duplicated: the frame's columns are not known (pass subset=[...]);

@@ -196,5 +196,8 @@ till = till.with_columns(takings=pl.col("takings").round(2))
 )
 print(
     "comps given:",
-    sales.select((pl.col("price_each") == 0).fill_null(False).sum().cast(pl.Int64)).collect().to_series().to_numpy()[0],
+    sales.select((pl.col("price_each") == 0).fill_null(False).sum().cast(pl.Int64))
+    .collect()
+    .to_series()
+    .to_numpy()[0],
 )

@@ -172,5 +172,9 @@ first_visit = (
 )
 print(
     first_visit.tail(3).collect(),
-    drops.select(pl.col("weight_kg").sum()).cast({pl.selectors.integer(): pl.Int64}).collect().to_series().to_numpy()[0],
+    drops.select(pl.col("weight_kg").sum())
+    .cast({pl.selectors.integer(): pl.Int64})
+    .collect()
+    .to_series()
+    .to_numpy()[0],
 )

@@ -53,7 +53,13 @@ readings = (
     .collect()
     .lazy()
 )
-unread = readings.select(pl.col("read_at").is_null().sum().cast(pl.Int64)).collect().to_series().to_numpy()[0]
+unread = (
+    readings
+    .select(pl.col("read_at").is_null().sum().cast(pl.Int64))
+    .collect()
+    .to_series()
+    .to_numpy()[0]
+)
 readings = readings.drop_nulls("read_at")
 readings = readings.with_columns(observer=pl.col("observer").str.to_titlecase())
 

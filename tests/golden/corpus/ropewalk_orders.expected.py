@@ -83,7 +83,13 @@ fibres = pl.scan_csv(
 )
 print("order lines:", orders.select(pl.len()).collect().item())
 
-repeats = orders.select(pl.col("order_no").is_first_distinct().not_().sum().cast(pl.Int64)).collect().to_series().to_numpy()[0]
+repeats = (
+    orders
+    .select(pl.col("order_no").is_first_distinct().not_().sum().cast(pl.Int64))
+    .collect()
+    .to_series()
+    .to_numpy()[0]
+)
 print("order numbers used twice:", repeats)
 orders = orders.with_columns(fibre=normalise(pl.col("fibre")))
 orders = orders.with_columns(

@@ -55,7 +55,10 @@ absent = meals.filter(~(pl.col("portions") > 0).fill_null(False))
 print(
     served.select(pl.len()).collect().item(),
     absent.select(pl.len()).collect().item(),
-    served.select(pl.col("pupil_id").drop_nulls().n_unique().cast(pl.Int64)).collect().to_series().to_numpy()[0],
+    served.select(pl.col("pupil_id").drop_nulls().n_unique().cast(pl.Int64))
+    .collect()
+    .to_series()
+    .to_numpy()[0],
 )
 
 per_class = (

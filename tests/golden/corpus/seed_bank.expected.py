@@ -135,5 +135,8 @@ weak = (
     .sink_csv("weak_cold_room.csv")
 )
 print(
-    weak.select(pl.col("accession").drop_nulls().n_unique().cast(pl.Int64)).collect().to_series().to_numpy()[0],
+    weak.select(pl.col("accession").drop_nulls().n_unique().cast(pl.Int64))
+    .collect()
+    .to_series()
+    .to_numpy()[0],
 )

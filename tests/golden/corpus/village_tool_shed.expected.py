@@ -105,7 +105,10 @@ print("loans in the book:", loans.select(pl.len()).collect().item())
 
 print(
     "loan slips entered twice:",
-    loans.select(pl.col("loan_id").is_first_distinct().not_().sum().cast(pl.Int64)).collect().to_series().to_numpy()[0],
+    loans.select(pl.col("loan_id").is_first_distinct().not_().sum().cast(pl.Int64))
+    .collect()
+    .to_series()
+    .to_numpy()[0],
 )
 loans = loans.with_columns(tool=pl.col("tool").str.strip_chars().str.to_lowercase())
 loans = loans.with_columns(
