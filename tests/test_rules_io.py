@@ -754,3 +754,20 @@ def test_a_column_of_date_differences_is_written_as_pandas_writes_it(
         """
     expected_dir, actual_dir, converted = written_by_both(source, data, monkeypatch)
     assert (actual_dir / "gaps.csv").read_text() == (expected_dir / "gaps.csv").read_text(), converted
+
+
+# -- to_csv: options, encodings, compression, text pandas' way --------------------------------
+
+@pytest.mark.parametrize("write", [
+    pytest.param('df.to_csv("out.csv", sep=";", columns=["name", "kg"])', id="sep and columns"),
+    pytest.param('df.to_csv("out.csv", header=False)', id="no header"),
+    pytest.param('df.to_csv("out.csv", na_rep="-")', id="na_rep"),
+    pytest.param('df.to_csv("out.csv", header=["a", "b", "c"], encoding="utf-8-sig")',
+                 id="header names and a byte-order mark"),
+])
+def test_to_csv_with_the_index_keeps_every_option(write: str, data: Path,
+                                                  monkeypatch: pytest.MonkeyPatch) -> None:
+    # the default index=True hands the write to pandas: it had forgotten every other option
+    source = f"import numpy as np\nimport pandas as pd\n{FRAME}\n{write}\n"
+    expected_dir, actual_dir, converted = written_by_both(source, data, monkeypatch)
+    assert (actual_dir / "out.csv").read_bytes() == (expected_dir / "out.csv").read_bytes(), converted

@@ -360,7 +360,8 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     an integer column holding a missing value as floats (2024.0: float64 in pandas), unless
     the script can make pandas' nullable integers, which porter does not tell apart (0.9); a
     missing value alone on its line (one column) as "". With the default index=True on a
-    plain frame the write is handed to pandas so the row labels are written.
+    plain frame the write is handed to pandas (with its sep, header, na_rep,
+    encoding) so the row labels are written.
     """
     ctx.reject_unknown(call, "path_or_buf", "index", "sep", "header", "na_rep", "columns",
                        "encoding", positional=1)
@@ -381,7 +382,10 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
             raise ctx.todo("index=True writes pandas' row labels, which are no longer 0..n-1 here")
         ctx.handover = True
         ctx.lower("index=True writes the row labels: handed over to pandas for the write", 1.0)
-        return Scalar(handover.to_pandas(frame).method("to_csv", target.code))
+        # pandas writes the file itself, so every option it was given goes along (columns=
+        # is the select above)
+        passed = {name: _plain_argument(call, name) for name in HANDED_OPTIONS if call.has(name)}
+        return Scalar(handover.to_pandas(frame).method("to_csv", target.code, **passed))
     frame = written_index(frame, bool(index))
     kwargs: dict[str, object] = {}
     sep = call.const("sep", None, ",")
@@ -413,6 +417,18 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
                       "as an empty line, which a reader skips (porter does not know the columns)",
                       0.9)
     return Scalar(code.method("sink_csv", target.code, **kwargs))
+
+
+# to_csv options a write handed to pandas passes on as they were written
+HANDED_OPTIONS = ("sep", "header", "na_rep", "encoding")
+
+
+def _plain_argument(call: PandasCall, name: str) -> Code:
+    """An option passed on to pandas as it was written: a plain Python value, not a frame."""
+    value = call.arg(name)
+    if not isinstance(value, Opaque):
+        raise Unsupported(f"`{name}` is not a plain value here")
+    return value.code
 
 
 def _header_names(frame: Frame, header: list[Any], ctx: RuleContext) -> dict[str, str]:
