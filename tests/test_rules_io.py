@@ -771,3 +771,25 @@ def test_to_csv_with_the_index_keeps_every_option(write: str, data: Path,
     source = f"import numpy as np\nimport pandas as pd\n{FRAME}\n{write}\n"
     expected_dir, actual_dir, converted = written_by_both(source, data, monkeypatch)
     assert (actual_dir / "out.csv").read_bytes() == (expected_dir / "out.csv").read_bytes(), converted
+
+
+@pytest.mark.parametrize("make", [
+    'df["d"] = df["t"] - pd.Timestamp("2024-01-01")',
+    'df["d"] = df["u"] - df["t"]',
+])
+@pytest.mark.parametrize("with_data", [False, True], ids=["", "with --data"])
+def test_a_duration_made_without_a_hint_is_written_as_pandas_writes_it(
+        make: str, with_data: bool, data: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    # a difference of dates in a script that names no timedelta: Polars' writer had refused it
+    (data / "t.csv").write_text("id,t,u\n1,2024-01-04 10:00,2024-01-04 11:30\n2,,2024-01-05 00:00\n"
+                                "3,2024-03-31 23:00,2024-03-31 22:00\n", encoding="utf-8")
+    source = f'import pandas as pd\ndf = pd.read_csv("t.csv", parse_dates=["t", "u"])\n{make}\n' \
+             'df.to_csv("out.csv", index=False)\n'
+    converted = convert(source, **({"data_dir": str(data)} if with_data else {})).converted_text
+    for side, text in (("pandas", source), ("polars", converted)):
+        (data / side).mkdir()
+        (data / side / "t.csv").write_text((data / "t.csv").read_text(), encoding="utf-8")
+        monkeypatch.chdir(data / side)
+        run(text)
+    assert (data / "polars" / "out.csv").read_text(encoding="utf-8") == \
+        (data / "pandas" / "out.csv").read_text(encoding="utf-8"), converted

@@ -506,8 +506,10 @@ def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
             "replace_strict", {True: "True", False: "False"}))
     if "datetime" in kinds or (ctx.datetimes_possible and not complete):
         out.append(emit.atom(CSV_DATETIMES_CONSTANT))
-    if "duration" in kinds or (ctx.durations_possible and not complete):
-        # a difference of dates: Polars cannot write a duration, pandas writes "1 days 06:00:00"
+    if "duration" in kinds or ((ctx.durations_possible or ctx.datetimes_possible) and not complete):
+        # a difference of dates: Polars cannot write a duration, pandas writes "1 days 06:00:00";
+        # any script that makes datetimes can subtract them (t - Timestamp, u - t) in a column
+        # porter has no type for
         out.append(emit.atom(CSV_DURATIONS_CONSTANT))
     if "int" in kinds or not complete:
         if ctx.nullable_ints_possible:

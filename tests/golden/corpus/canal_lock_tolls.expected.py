@@ -25,6 +25,36 @@ PANDAS_CSV_DATETIMES = (
     .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
 )
 
+# Duration columns as pandas' to_csv writes them: "2 days" when every value is a whole number
+# of days, else "-1 days +23:00:00", with microseconds when one value has them.
+PANDAS_CSV_DURATIONS = (
+    pl.when((pl.selectors.duration().dt.total_microseconds() % 86_400_000_000 == 0).all())
+    .then(
+        (pl.selectors.duration().dt.total_microseconds() // 86_400_000_000).cast(pl.String)
+        + " days"
+    )
+    .otherwise(
+        (pl.selectors.duration().dt.total_microseconds() // 86_400_000_000).cast(pl.String)
+        + pl.when(pl.selectors.duration().dt.total_microseconds() < 0)
+        .then(pl.lit(" days +"))
+        .otherwise(pl.lit(" days "))
+        + (pl.selectors.duration().dt.total_microseconds() % 86_400_000_000 // 3_600_000_000)
+        .cast(pl.String).str.zfill(2)
+        + ":"
+        + (pl.selectors.duration().dt.total_microseconds() % 3_600_000_000 // 60_000_000)
+        .cast(pl.String).str.zfill(2)
+        + ":"
+        + (pl.selectors.duration().dt.total_microseconds() % 60_000_000 // 1_000_000)
+        .cast(pl.String).str.zfill(2)
+        + pl.when((pl.selectors.duration().dt.total_microseconds() % 1_000_000 == 0).all())
+        .then(pl.lit(""))
+        .otherwise(
+            "." + (pl.selectors.duration().dt.total_microseconds() % 1_000_000)
+            .cast(pl.String).str.zfill(6)
+        )
+    )
+)
+
 # Integer columns as pandas' to_csv writes them: one holding a missing value is float in
 # pandas (2024.0), one without stays integer (2024).
 PANDAS_CSV_INTS = (
@@ -152,6 +182,7 @@ def main():
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
         )
         .sink_csv("toll_by_lock.csv")
@@ -218,6 +249,7 @@ def main():
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
+            PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
         )
         .sink_csv("owed_by_skipper.csv")
