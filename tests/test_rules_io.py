@@ -793,3 +793,19 @@ def test_a_duration_made_without_a_hint_is_written_as_pandas_writes_it(
         run(text)
     assert (data / "polars" / "out.csv").read_text(encoding="utf-8") == \
         (data / "pandas" / "out.csv").read_text(encoding="utf-8"), converted
+
+
+def test_to_csv_utf8_sig_writes_the_byte_order_mark(data: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    source = f'import numpy as np\nimport pandas as pd\n{FRAME}\n' \
+             'df.to_csv("out.csv", index=False, encoding="utf-8-sig")\n' \
+             'df.to_csv("plain.csv", index=False, encoding="UTF_8")\n'
+    expected_dir, actual_dir, converted = written_by_both(source, data, monkeypatch)
+    for name in ("out.csv", "plain.csv"):
+        assert (actual_dir / name).read_bytes() == (expected_dir / name).read_bytes(), converted
+
+
+def test_to_csv_in_another_encoding_is_a_todo() -> None:
+    result = convert(f'import numpy as np\nimport pandas as pd\n{FRAME}\n'
+                     'df.to_csv("out.csv", index=False, encoding="latin-1")\n')
+    assert any(s.key == "frame.to_csv" and s.status == "todo" for s in result.sites), result.sites
+    assert "sink_csv" not in result.converted_text

@@ -355,7 +355,8 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: index=False; the index columns porter tracks (after a groupby) are written first
     like pandas writes the index; sep, header (a list renames the written columns), na_rep,
-    columns.
+    columns; encoding="utf-8-sig" (the byte-order mark first: include_bom), other encodings
+    than UTF-8 are TODOs.
     Caveats: booleans and datetimes are written as pandas writes them (True/False, no `T`);
     an integer column holding a missing value as floats (2024.0: float64 in pandas), unless
     the script can make pandas' nullable integers, which porter does not tell apart (0.9); a
@@ -397,6 +398,12 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     na_rep = call.const("na_rep", None, "", kinds=(str,))
     if na_rep:
         kwargs["null_value"] = na_rep
+    encoding = call.const("encoding", None, None, kinds=(str,))
+    spelled = encoding.lower().replace("-", "").replace("_", "") if encoding else "utf8"
+    if spelled == "utf8sig":  # the byte-order mark first, as Excel wants it
+        kwargs["include_bom"] = True
+    elif spelled != "utf8":
+        raise ctx.todo(f"encoding {encoding!r}: Polars writes UTF-8 only")
     if frame.columns is not None and len(frame.dtypes) == len(frame.columns):
         ctx.confidence = max(ctx.confidence, 0.98)  # every column's type is known and handled
     text = csv_text_columns(frame, ctx)
