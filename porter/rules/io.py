@@ -12,7 +12,8 @@ from porter.rules import rule
 from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_DURATIONS_CONSTANT,
                                      CSV_INTS_CONSTANT, CSV_LISTS_CONSTANT, DTYPES,
                                      NA_CONSTANT, NOT_DECOMPRESSED, PANDAS_NA_TOKENS,
-                                     compression_of, is_number, is_url, na_value_texts)
+                                     POLARS_CSV_COMPRESSION, compression_of, is_number, is_url,
+                                     na_value_texts, written_compression)
 from porter.analysis.schema import PADDING
 from porter.rules.strings import LIST_STR, list_repr
 from porter.translate import handover
@@ -356,7 +357,8 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: index=False; the index columns porter tracks (after a groupby) are written first
     like pandas writes the index; sep, header (a list renames the written columns), na_rep,
     columns; encoding="utf-8-sig" (the byte-order mark first: include_bom), other encodings
-    than UTF-8 are TODOs.
+    than UTF-8 are TODOs; gzip and zstd compression, given or inferred from the name as pandas
+    infers it (bz2, zip, xz and tar are TODOs: Polars' sink does not write them).
     Caveats: booleans and datetimes are written as pandas writes them (True/False, no `T`);
     an integer column holding a missing value as floats (2024.0: float64 in pandas), unless
     the script can make pandas' nullable integers, which porter does not tell apart (0.9); a
@@ -365,7 +367,7 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     encoding) so the row labels are written.
     """
     ctx.reject_unknown(call, "path_or_buf", "index", "sep", "header", "na_rep", "columns",
-                       "encoding", positional=1)
+                       "encoding", "compression", positional=1)
     target = _write_target(call, ctx, "csv")
     frame = _as_frame(call)
     if frame.column_pairs and call.const("header", None, True) is not False:
@@ -398,6 +400,7 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     na_rep = call.const("na_rep", None, "", kinds=(str,))
     if na_rep:
         kwargs["null_value"] = na_rep
+    kwargs.update(_sink_compression(call, target, ctx))
     encoding = call.const("encoding", None, None, kinds=(str,))
     spelled = encoding.lower().replace("-", "").replace("_", "") if encoding else "utf8"
     if spelled == "utf8sig":  # the byte-order mark first, as Excel wants it
@@ -427,7 +430,33 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 # to_csv options a write handed to pandas passes on as they were written
-HANDED_OPTIONS = ("sep", "header", "na_rep", "encoding")
+HANDED_OPTIONS = ("sep", "header", "na_rep", "encoding", "compression")
+
+
+def _sink_compression(call: PandasCall, target: Value, ctx: RuleContext) -> dict[str, object]:
+    """sink_csv's options for the compression pandas writes: given, or inferred from the name
+    (gzip and zstd; Polars' sink writes no other, and checks the name's suffix)."""
+    given = call.const("compression", None, "infer", kinds=(str, type(None)))
+    path = target.const if isinstance(target, Opaque) and isinstance(target.const, str) else None
+    if given == "infer":
+        if path is None:
+            ctx.lower("the file's name is not written out: pandas compresses a name ending .gz, "
+                      ".zst, .bz2, .zip, .xz or .tar, Polars' sink writes it uncompressed (and "
+                      "refuses .gz and .zst)", 0.9)
+            return {}
+        method = written_compression(path)
+    else:
+        method = given
+    if method is None:
+        # an uncompressed file under a name Polars takes for a compressed one
+        named = path is None or written_compression(path) in POLARS_CSV_COMPRESSION
+        return {"check_extension": False} if named else {}
+    if method not in POLARS_CSV_COMPRESSION:
+        raise ctx.todo(f"{method} compression: Polars' CSV sink writes gzip and zstd only")
+    out: dict[str, object] = {"compression": method}
+    if path is None or not path.endswith(POLARS_CSV_COMPRESSION[method]):
+        out["check_extension"] = False  # pandas writes it under any name
+    return out
 
 
 def _plain_argument(call: PandasCall, name: str) -> Code:

@@ -215,6 +215,20 @@ def compression_of(path: str) -> str | None:
     return None
 
 
+# pandas' writers infer the compression from the name too (pandas.io.common, tar first);
+# Polars' CSV sink writes gzip and zstd, and refuses a name ending .gz / .zst without them
+WRITE_COMPRESSION = {".tar": "tar", ".tar.gz": "tar", ".tar.bz2": "tar", ".tar.xz": "tar",
+                     ".gz": "gzip", ".bz2": "bz2", ".zip": "zip", ".xz": "xz", ".zst": "zstd"}
+POLARS_CSV_COMPRESSION = {"gzip": ".gz", "zstd": ".zst"}  # what sink_csv writes: its suffix
+
+
+def written_compression(path: str) -> str | None:
+    """The compression pandas' to_csv infers from the file's name; None for none."""
+    lowered = path.split("::")[0].lower()
+    return next((method for extension, method in WRITE_COMPRESSION.items()
+                 if lowered.endswith(extension)), None)
+
+
 def is_url(path: str) -> bool:
     return "://" in path
 
