@@ -59,13 +59,19 @@ PORTS = [
                  id="strftime"),
     pytest.param('df["t"].dt.strftime("%H:%M:%S.%f")', 'dt.to_string("%H:%M:%S.%6f")',
                  id="strftime microseconds"),
+    # pandas' own pattern picks the values that parse and rewrites them into one layout
     pytest.param('pd.to_datetime(df["raw"], format="%Y-%m-%d %H:%M:%S", errors="coerce")',
-                 'pl.col("raw").str.to_datetime("%Y-%m-%d %H:%M:%S", strict=False)',
-                 id="to_datetime errors=coerce"),
+                 '"${Y}-${m}-${d} ${H}:${M}:${S}=").str.to_datetime("%Y-%m-%d %H:%M:%S=", '
+                 'time_unit="us", strict=False)', id="to_datetime errors=coerce"),
     pytest.param('pd.to_datetime(df["raw"], format="%d/%m/%Y")',
-                 'pl.col("raw").str.to_datetime("%d/%m/%Y")', id="to_datetime format"),
+                 'pl.col("raw").replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)'
+                 '.str.replace("(?i)^(?:(?P<d>', id="to_datetime format"),
     pytest.param('pd.to_datetime(df["raw"], format="%Y-%m-%d %H:%M:%S.%f")',
-                 'str.to_datetime("%Y-%m-%d %H:%M:%S%.f")', id="to_datetime fraction"),
+                 'str.to_datetime("%Y-%m-%d %H:%M:%S%.f=", time_unit="us")',
+                 id="to_datetime fraction"),
+    pytest.param('pd.to_datetime(df["raw"], format="%I:%M %p")',
+                 '"1900-1-1 ${I}:${M}:0 ${p}=").str.to_datetime("%Y-%m-%d %I:%M:%S %p="',
+                 id="to_datetime time only"),
     pytest.param('pd.to_datetime(df["raw"])', 'pl.col("raw").str.to_datetime(time_unit="us")',
                  id="to_datetime without format"),
 ]
@@ -203,7 +209,55 @@ PARSES = [
     pytest.param('["20240305", "20231231", None]', "%Y%m%d", "raise", id="no separators"),
     pytest.param('["07:05 PM 2024-01-02", "12:05 AM 2024-01-02"]', "%I:%M %p %Y-%m-%d", "raise",
                  id="twelve-hour clock"),
+    # pandas' %Y is exactly four digits: a two-digit year slipped into the column is NaT
+    pytest.param('["05/01/24", "05/01/2024", "7/3/999", "29/02/2024", "29/02/2023", None,'
+                 ' "07/03/0999", "31/12/9999", "07/03/0000", "05/01/02024"]', "%d/%m/%Y",
+                 "coerce", id="short and long years"),
+    pytest.param('["24-01-05 07:05", "2024-01-05 07:05", "2024-01-05 07: 05", "2024-01-05  7:5",'
+                 ' "2024-01-05\\t07:05", "2024-01-05\\xa007:05", "2024-01-05 24:00",'
+                 ' "2024-01-05T07:05", "2024-01-05", None]', "%Y-%m-%d %H:%M", "coerce",
+                 id="spaces inside a value"),
+    # only %d takes a leading space (" 5"); spaces before other numbers, before the value or
+    # after it are NaT
+    pytest.param('["2024 0105", "2024 01 05", "20240105", "2024015", "202415", "2024105",'
+                 ' "20241231", " 20240105", "20240105 ", "2024０105"]', "%Y%m%d", "coerce",
+                 id="compact dates"),
+    pytest.param('["05/ 1/2024", "5/01/ 2024", " 5/01/2024", "5/1/2024", "05/01/2024 ",'
+                 ' " 05/01/2024", "5 /01/2024", "05/13/2024", "31/04/2024", "00/01/2024", ""]',
+                 "%d/%m/%Y", "coerce", id="spaces and bad days"),
+    pytest.param('["2024-01-05", "", "NaT", "nan", "NaN", None, "2024-1-5", "2024-01- 5"]',
+                 "%Y-%m-%d", "raise", id="texts pandas reads as NaT"),
+    pytest.param('["5 jan 2024", "05 JAN 2024", "05 Sep 2024", "05  Feb 2024", "29 Feb 2024",'
+                 ' "05 Sept 2024", "05 January 2024", "05 Mäy 2024"]', "%d %b %Y", "coerce",
+                 id="month abbreviations"),
+    pytest.param('["January 5, 2024", "january 05, 2024", "MAY  31, 2024", "Jan 5, 2024",'
+                 ' "January 5,2024", None]', "%B %d, %Y", "coerce", id="month names in full"),
+    pytest.param('["2024-01-05t07:05:09", "2024-01-05T07:05:60", "2024-12-31T23:59:59",'
+                 ' "2024-01-05 07:05:09"]', "%Y-%m-%dT%H:%M:%S", "coerce", id="a letter in the format"),
+    pytest.param('["05.01.24", "5.1.69", "05.01.68", "05.01.2024", "05.01.4", "29.02.00"]',
+                 "%d.%m.%y", "coerce", id="two-digit years coerced"),
+    # a format without a date: pandas fills in 1900-01-01
+    pytest.param('["07:05 PM", "12:00 AM", "11:59 pm", "12:30 pm", "13:00 PM", "7:05PM", None]',
+                 "%I:%M %p", "coerce", id="time only, twelve-hour clock"),
+    pytest.param('["07:05", "7:5", "23:59", "00:00", None]', "%H:%M", "raise", id="time only"),
+    pytest.param('["2024-01", "2024-1", "2024-13", "24-01"]', "%Y-%m", "coerce", id="months"),
 ]
+
+
+@pytest.mark.parametrize("values, fmt", [
+    pytest.param('["05/01/24", "05/01/2024"]', "%d/%m/%Y", id="two-digit year"),
+    pytest.param('["2024 0105", "20240105"]', "%Y%m%d", id="a space inside"),
+    pytest.param('["24:00", "07:05"]', "%H:%M", id="hour 24"),
+])
+def test_to_datetime_raises_where_pandas_raises(values: str, fmt: str) -> None:
+    # pandas is the reference implementation: without errors="coerce" it refuses a value its
+    # pattern does not match, and so must the conversion (never a value pandas would not give)
+    source = (HEAD + f'df = pd.DataFrame({{"raw": {values}}})\n'
+              f'df["t"] = pd.to_datetime(df["raw"], format="{fmt}")\nresult = df\n')
+    with pytest.raises(ValueError):
+        run(source)
+    with pytest.raises(pl.exceptions.InvalidOperationError):
+        run(convert(source).converted_text)["result"].collect()
 
 
 @pytest.mark.parametrize("values, fmt, errors", PARSES)
@@ -237,8 +291,15 @@ def test_to_datetime_lowers_confidence_where_a_difference_remains() -> None:
     def site(source: str):
         return next(s for s in convert(source).sites if s.key == "pd.to_datetime")
 
-    strict = site(FRAME)
-    assert strict.confidence == 0.95 and "NaT" in strict.message
+    # pandas' texts for NaT ("", "NaT", "nan") are made missing before the strict parse
+    assert site(FRAME).confidence == 1.0
+    assert site(HEAD + 'df = pd.DataFrame({"raw": ["2024-01-05"]})\n'
+                'df["t"] = pd.to_datetime(df["raw"], format="%Y-%m-%d %H:%M:%S.%f")\n'
+                ).confidence == 0.9
+    # a directive without pandas' pattern keeps Polars' parser, which takes more
+    julian = site(HEAD + 'df = pd.DataFrame({"raw": ["2024-005"]})\n'
+                  'df["t"] = pd.to_datetime(df["raw"], format="%Y-%j", errors="coerce")\n')
+    assert julian.confidence == 0.8 and "%j" in julian.message
     coerce = site(HEAD + 'df = pd.DataFrame({"raw": ["2024-01-05"]})\n'
                   'df["t"] = pd.to_datetime(df["raw"], format="%Y-%m-%d", errors="coerce")\n')
     assert coerce.confidence == 1.0
@@ -263,10 +324,8 @@ def test_known_difference_to_datetime_guess() -> None:
                  'df["t"] = pd.to_datetime(df["raw"])\nresult = df\n')
 
 
-@pytest.mark.xfail(strict=True, raises=pl.exceptions.InvalidOperationError,
-                   reason="documented caveat (confidence 0.95): with errors='raise' "
-                   "an empty string is NaT in pandas and an error in Polars")
-def test_known_difference_to_datetime_empty_string() -> None:
+def test_to_datetime_empty_string_is_nat() -> None:
+    # pandas is the reference implementation: "" is NaT even with errors="raise"
     differential(HEAD + 'df = pd.DataFrame({"raw": ["2024-01-05", ""]})\n'
                  'df["t"] = pd.to_datetime(df["raw"], format="%Y-%m-%d")\nresult = df\n')
 

@@ -344,6 +344,101 @@ def strftime(call: PandasCall, ctx: RuleContext) -> Value:
     return _result(column, _dt(column).method("to_string", fmt), "str")
 
 
+# pandas' strptime patterns (TimeRE in pandas/_libs/tslibs/strptime.pyx, English names), one
+# group per directive. Digits are [0-9]: Rust's \d is any Unicode digit, and pandas rejects
+# "０5". %Y is four digits other than 0000 (year 0 is out of pandas' range). pandas matches
+# the whole pattern case-insensitively, a run of blanks in the format matching any run of
+# whitespace, and refuses a value the pattern does not match to its end.
+_STRPTIME = {
+    "Y": "[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])",
+    "y": "[0-9][0-9]",
+    "m": "1[0-2]|0[1-9]|[1-9]",
+    "d": "3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]",
+    "H": "2[0-3]|[0-1][0-9]|[0-9]",
+    "I": "1[0-2]|0[1-9]|[1-9]",
+    "M": "[0-5][0-9]|[0-9]",
+    "S": "6[0-1]|[0-5][0-9]|[0-9]",
+    "f": "[0-9]{1,9}",
+    "p": "am|pm",
+    "b": "jan|feb|mar|apr|may|jun|jul|aug|sep|oct|nov|dec",
+    "B": "september|february|november|december|january|october|august|march|april|june|july|may",
+}
+# pandas' texts for a missing timestamp, NaT even with errors="raise"
+NAT_TEXTS = ["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"]
+_REGEX_META = set("\\.+*?()|[]{}^$")
+
+
+@dataclass(frozen=True)
+class Strptime:
+    """A pandas format as a regex replacement and a chrono format: the pattern (pandas' own)
+    rewrites a value it matches into `text`, which Polars reads with `chrono`; any other value
+    keeps its text behind an empty field, which Polars cannot read."""
+
+    pattern: str
+    text: str
+    chrono: str
+
+
+def strptime_port(fmt: str) -> Strptime | str:
+    """pandas' strptime of `fmt` as a Strptime, or why it is not ported that way."""
+    pattern: list[str] = []
+    seen: list[str] = []
+    i = 0
+    while i < len(fmt):
+        char = fmt[i]
+        if char == "%":
+            directive = fmt[i + 1:i + 2]
+            i += 2
+            if directive == "%":
+                pattern.append("%")
+                continue
+            if directive not in _STRPTIME:
+                return f"the directive %{directive}"
+            if directive in seen:
+                return f"%{directive} twice (pandas refuses the format)"
+            seen.append(directive)
+            pattern.append(f"(?P<{directive}>{_STRPTIME[directive]})")
+        elif char.isspace():
+            while i < len(fmt) and fmt[i].isspace():
+                i += 1
+            pattern.append(r"\s+")
+        else:
+            pattern.append("\\" + char if char in _REGEX_META else char)
+            i += 1
+    found = set(seen)
+    if not found:
+        return "a format without directives"
+    if ("I" in found) != ("p" in found):
+        return "%I without %p (pandas reads 12 as 0) or %p without %I (ignored by pandas)"
+    if len(found & {"Y", "y"}) > 1 or len(found & {"m", "b", "B"}) > 1 or \
+            len(found & {"H", "I"}) > 1:
+        return "one part of the date written twice"
+    if "f" in found and "S" not in found:
+        return "%f without %S"
+    # every part pandas fills in when the format leaves it out: 1900-01-01 00:00:00
+    year = next((d for d in "Yy" if d in found), None)
+    month = next((d for d in "mbB" if d in found), None)
+    hour = "I" if "I" in found else "H" if "H" in found else None
+    pieces = [("${%s}" % year, f"%{year}") if year else ("1900", "%Y"),
+              ("-", "-"),
+              ("${%s}" % month, f"%{month}") if month else ("1", "%m"),
+              ("-", "-"),
+              ("${d}", "%d") if "d" in found else ("1", "%d"),
+              (" ", " "),
+              ("${%s}" % hour, f"%{hour}") if hour else ("0", "%H"),
+              (":", ":"),
+              ("${M}", "%M") if "M" in found else ("0", "%M"),
+              (":", ":"),
+              ("${S}", "%S") if "S" in found else ("0", "%S")]
+    if "f" in found:
+        pieces.append((".${f}", "%.f"))
+    if "p" in found:
+        pieces.append((" ${p}", " %p"))
+    pieces.append(("=", "="))  # what a match leaves over follows: Polars refuses it
+    return Strptime(pattern="(?i)^(?:" + "".join(pattern) + ")|^",
+                    text="".join(p for p, _ in pieces), chrono="".join(c for _, c in pieces))
+
+
 def parse_format(fmt: str, ctx: RuleContext, *, years_fixed: bool = False) -> str:
     """A pandas (strptime) format as a Polars (chrono) format, or a TODO (`years_fixed`: the
     caller moves chrono's 2069 of %y to pandas' 1969)."""
@@ -367,14 +462,25 @@ def parse_format(fmt: str, ctx: RuleContext, *, years_fixed: bool = False) -> st
 
 @rule("pd.to_datetime")
 def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
-    """pd.to_datetime(col, format=, errors=) -> col.str.to_datetime(format, strict=...).
+    """pd.to_datetime(col, format=, errors=) -> col.str.replace(pandas' pattern, one layout)
+    .str.to_datetime(that layout, strict=...).
 
-    Handles: errors="coerce" (strict=False gives null where pandas gives NaT; a value with
-    leading blanks is NaT too, as pandas does not match it); the explicit format, %y's 69 read
-    as 1969 as Python reads it; a column that already holds datetimes is kept as it is.
+    Handles: with format= of %Y %y %m %d %H %I %p %M %S %f %b %B, pandas' own pattern of the
+    format decides which values parse: %Y exactly four digits ("05/01/24" is NaT), one or two
+    digits for the others, a leading space only for %d (" 5"), a blank in the format matching
+    any run of whitespace, letters in any case, nothing left over; a value it refuses is null
+    with errors="coerce" and an error with errors="raise", as in pandas. Each value it matches
+    is rewritten into one layout Polars reads (chrono alone takes "24" for %Y and spaces
+    before any number). The parts a format leaves out are pandas' 1900-01-01 00:00:00 (a
+    time-only format such as "%H:%M"). "", "NaT" and "nan" are NaT with errors="raise" too;
+    %y's 69 is read as 1969 as Python reads it; a column that already holds datetimes is kept.
     Caveats: without a format both guess it from the first value, but pandas reads 05/03/2024
-    month first and Polars day first (0.7); with errors="raise", "" and "NaT" are NaT in pandas
-    and an error in Polars (0.95); a scalar, a list or a frame stays on pandas.
+    month first and Polars day first (0.7); %f keeps microseconds where pandas keeps
+    nanoseconds (0.9); other directives (%j) keep Polars' own parser, which also takes values
+    pandas refuses (0.8); a second of 61 rolls over into the next minute in pandas and is
+    missing here; a year in non-ASCII digits ("２024") and year 0000 in an ISO format (an error
+    in pandas even with errors="coerce") are missing here; a scalar, a list or a frame stays
+    on pandas.
     """
     ctx.reject_unknown(call, "arg", "errors", "format", positional=1)
     column = call.arg("arg", 0)
@@ -395,24 +501,44 @@ def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
     fmt = call.const("format", None, None)
     options: dict[str, object] = {"strict": False} if errors == "coerce" else {}
     text = column.code.attr("str")
-    if errors == "raise":
-        ctx.lower('"" and "NaT" are missing in pandas and an error in Polars (strict)', 0.95)
+    nat_texts = '"" and "NaT" are missing in pandas and an error in Polars (strict)'
     if fmt is None:
+        if errors == "raise":
+            ctx.lower(nat_texts, 0.95)
         ctx.lower("no format: pandas reads 05/03/2024 as May 3 (month first), Polars guesses "
                   "day first; write format= to be sure", 0.7)
         code = text.method("to_datetime", time_unit="us", **options)
     else:
         if not isinstance(fmt, str):
             raise ctx.todo("the format must be text")
-        code = text.method("to_datetime", parse_format(fmt, ctx, years_fixed=True), **options)
+        port = strptime_port(fmt) if fmt not in ("mixed", "ISO8601") else "mixed"
+        if isinstance(port, Strptime):
+            # pandas' own pattern decides which values parse (chrono alone takes "24" for %Y,
+            # "2024 0105" for %Y%m%d, " 1" for %m); each value it matches is rewritten into
+            # one fixed layout Polars reads, with pandas' 1900-01-01 for the parts the format
+            # leaves out
+            source = column.code
+            if errors == "raise":  # pandas' texts for NaT are missing, not an error
+                source = source.method("replace", NAT_TEXTS, None)
+            code = source.attr("str").method("replace", port.pattern, port.text) \
+                .attr("str").method("to_datetime", port.chrono, time_unit="us", **options)
+            if "%f" in fmt:
+                ctx.lower("%f: Polars keeps microseconds where pandas keeps nanoseconds", 0.9)
+        else:
+            code = text.method("to_datetime", parse_format(fmt, ctx, years_fixed=True),
+                               **options)
+            ctx.lower(f"{port}: Polars' parser also takes values pandas refuses (a year "
+                      "of fewer than 4 digits, spaces inside a number)", 0.8)
+            if errors == "raise":
+                ctx.lower(nat_texts, 0.95)
+            if errors == "coerce" and not fmt[:1].isspace():
+                # pandas does not match a value with leading blanks to the format (NaT);
+                # Polars skips them
+                code = emit.when(emit.unary("~", text.method("contains", r"^\s")), code)
         if "%y" in fmt:
             # Python reads the two-digit year 69 as 1969, chrono as 2069 (the others agree)
             code = emit.when(emit.binop(code.attr("dt").method("year"), "==", 2069),
                              code.attr("dt").method("offset_by", "-100y"), code)
-        if errors == "coerce" and not fmt[:1].isspace():
-            # pandas does not match a value with leading blanks to the format (NaT); Polars
-            # skips them
-            code = emit.when(emit.unary("~", text.method("contains", r"^\s")), code)
     return derived_column(column, code, dtype="datetime")
 
 
