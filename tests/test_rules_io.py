@@ -855,3 +855,35 @@ def test_to_csv_compression_polars_does_not_write_is_a_todo(write: str, data: Pa
     assert "sink_csv" not in result.converted_text
     expected_dir, actual_dir, converted = written_by_both(source, data, monkeypatch)
     assert {p.name for p in actual_dir.iterdir()} == {p.name for p in expected_dir.iterdir()}
+
+
+@pytest.mark.parametrize("write", [
+    'df.to_csv("out.csv", index=False)',
+    'df[["name", "kind"]].to_csv("out.csv", index=False)',
+    'df[["name"]].to_csv("out.csv", index=False)',
+    'df.groupby("kind")["name"].first().to_csv("out.csv")',
+])
+@pytest.mark.parametrize("with_data", [False, True], ids=["", "with --data"])
+def test_to_csv_writes_an_empty_text_as_an_empty_field(write: str, with_data: bool, data: Path,
+                                                      monkeypatch: pytest.MonkeyPatch) -> None:
+    # pandas writes "" as an empty field (as a missing value); Polars had quoted it
+    (data / "names.csv").write_text("id,name,kind\n1,ab,x\n2,,y\n3, c,x\n4,ab,\n", encoding="utf-8")
+    source = ('import pandas as pd\ndf = pd.read_csv("names.csv")\n'
+              'df["name"] = df["name"].fillna("").str.strip().str.replace("ab", "", regex=False)\n'
+              'df["kind"] = df["kind"].fillna("").astype("category")\n'
+              f'{write}\n')
+    converted = convert(source, **({"data_dir": str(data)} if with_data else {})).converted_text
+    for side, text in (("pandas", source), ("polars", converted)):
+        (data / side).mkdir()
+        (data / side / "names.csv").write_text((data / "names.csv").read_text(), encoding="utf-8")
+        monkeypatch.chdir(data / side)
+        run(text)
+    assert (data / "polars" / "out.csv").read_text(encoding="utf-8") == \
+        (data / "pandas" / "out.csv").read_text(encoding="utf-8"), converted
+
+
+def test_to_csv_with_na_rep_says_an_empty_text_is_quoted() -> None:
+    result = convert('import pandas as pd\ndf = pd.DataFrame({"a": ["x", ""], "n": [1, 2]})\n'
+                     'df.to_csv("out.csv", index=False, na_rep="-")\n')
+    site = next(s for s in result.sites if s.key == "frame.to_csv")
+    assert site.confidence <= 0.9 and "empty text" in site.message, site

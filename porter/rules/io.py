@@ -358,7 +358,9 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     like pandas writes the index; sep, header (a list renames the written columns), na_rep,
     columns; encoding="utf-8-sig" (the byte-order mark first: include_bom), other encodings
     than UTF-8 are TODOs; gzip and zstd compression, given or inferred from the name as pandas
-    infers it (bz2, zip, xz and tar are TODOs: Polars' sink does not write them).
+    infers it (bz2, zip, xz and tar are TODOs: Polars' sink does not write them); an empty
+    text as an empty field, as pandas writes it (Polars quotes it; with na_rep given it still
+    does: 0.9).
     Caveats: booleans and datetimes are written as pandas writes them (True/False, no `T`);
     an integer column holding a missing value as floats (2024.0: float64 in pandas), unless
     the script can make pandas' nullable integers, which porter does not tell apart (0.9); a
@@ -410,6 +412,16 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     if frame.columns is not None and len(frame.dtypes) == len(frame.columns):
         ctx.confidence = max(ctx.confidence, 0.98)  # every column's type is known and handled
     text = csv_text_columns(frame, ctx)
+    kinds = {t for _, t in frame.dtypes}
+    if kinds & {"str", "category"} or frame.columns is None or len(frame.dtypes) != len(frame.columns):
+        if not na_rep:
+            # pandas writes an empty text as an empty field, as it writes a missing value;
+            # Polars quotes it ("") to tell it from a missing one
+            text.append(emit.atom("pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)")
+                        .method("replace", "", None))
+        else:
+            ctx.lower(f"na_rep={na_rep!r}: pandas writes an empty text as an empty field, "
+                      "Polars' writer as \"\"", 0.9)
     if text:
         frame = derive(frame, frame.code.method("with_columns", *text), same_rows=True)
     code = frame.code

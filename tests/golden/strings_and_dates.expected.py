@@ -80,6 +80,7 @@ weekend = visits.filter(pl.col("weekday") >= 5)
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("weekend_visits.csv")
 )

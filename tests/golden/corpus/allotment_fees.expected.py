@@ -153,6 +153,7 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
         )
         .sink_csv("ledger.csv")
     )
@@ -207,6 +208,7 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
         )
         .sink_csv("section_balances.csv")
     )
@@ -233,6 +235,7 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
         )
         .sink_csv("in_arrears.csv")
     )

@@ -108,6 +108,7 @@ shop_stats = (
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("shop_stats.csv")
 )
@@ -189,6 +190,7 @@ pl.collect_all([
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
         )
         .sink_csv("typical_units.csv", lazy=True)
     ),
@@ -199,6 +201,7 @@ pl.collect_all([
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
         )
         .sink_csv("first_and_last.csv", lazy=True)
     ),
@@ -223,6 +226,7 @@ least_waste = (
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("least_waste.csv")
 )

@@ -135,6 +135,7 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
         )
         .sink_csv("hive_totals.csv")
     )
@@ -171,6 +172,7 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
         )
         .sink_csv("apiary_totals.csv")
     )
@@ -219,6 +221,7 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
         )
         .sink_csv("honey_describe.csv")
     )

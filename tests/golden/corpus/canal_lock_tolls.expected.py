@@ -188,6 +188,7 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
         )
         .sink_csv("toll_by_lock.csv")
     )
@@ -255,6 +256,7 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
         )
         .sink_csv("owed_by_skipper.csv")
     )

@@ -114,6 +114,7 @@ status = (
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("wheel_status.csv")
 )
@@ -166,6 +167,7 @@ caves = (
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("cave_spread.csv")
 )
@@ -181,7 +183,14 @@ by_recipe = (
     .sort("recipe")
 )
 by_recipe = by_recipe.with_columns(mean_loss=pl.col("mean_loss").round(2))
-by_recipe.with_columns(PANDAS_CSV_INTS).sink_csv("recipe_loss.csv")
+(
+    by_recipe
+    .with_columns(
+        PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+    )
+    .sink_csv("recipe_loss.csv")
+)
 print(
     wheels.select(pl.col("status"))
     .drop_nulls()

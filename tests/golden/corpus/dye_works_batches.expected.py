@@ -106,6 +106,7 @@ water = water.with_columns(
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("water_per_dye.csv")
 )
@@ -119,6 +120,7 @@ flagged = batches.filter(
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("flagged_batches.csv")
 )
@@ -136,7 +138,14 @@ per_shift = (
     .collect()
     .lazy()
 )
-per_shift.with_columns(PANDAS_CSV_INTS).sink_csv("shift_report.csv")
+(
+    per_shift
+    .with_columns(
+        PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+    )
+    .sink_csv("shift_report.csv")
+)
 print(per_shift.collect())
 
 intensity = (
@@ -149,4 +158,11 @@ intensity = (
         maintain_order=True,
     )
 )
-intensity.head(10).sink_csv("thirstiest_batches.csv")
+(
+    intensity
+    .head(10)
+    .with_columns(
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+    )
+    .sink_csv("thirstiest_batches.csv")
+)

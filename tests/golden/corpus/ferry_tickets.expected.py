@@ -163,6 +163,7 @@ class_counts = (
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("fare_classes.csv")
 )
@@ -176,6 +177,7 @@ weekend = tickets.filter(pl.col("weekday") >= 5).collect().lazy()
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("weekend_sailings.csv")
 )

@@ -148,6 +148,7 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
         )
         .sink_csv("suspicious_readings.csv")
     )
@@ -203,6 +204,7 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
         )
         .sink_csv("stake_melt.csv")
     )

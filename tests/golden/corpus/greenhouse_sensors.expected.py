@@ -98,6 +98,7 @@ gaps = (
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("sensor_gaps.csv")
 )
@@ -142,6 +143,7 @@ hot = daily.filter(pl.col("too_hot")).drop("hot_limit")
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("hot_days.csv")
 )

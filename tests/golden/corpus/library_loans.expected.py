@@ -171,6 +171,7 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
         )
         .sink_csv("member_lateness.csv")
     )
@@ -183,7 +184,14 @@ def main():
         .agg(pl.len().cast(pl.Int64).alias("size"))
         .sort(["branch", "year", "month"])
     )
-    per_branch.with_columns(PANDAS_CSV_INTS).sink_csv("branch_month_loans.csv")
+    (
+        per_branch
+        .with_columns(
+            PANDAS_CSV_INTS,
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        )
+        .sink_csv("branch_month_loans.csv")
+    )
 
     unknown_members = (
         loans
@@ -201,6 +209,7 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
         )
         .sink_csv("unknown_members.csv")
     )

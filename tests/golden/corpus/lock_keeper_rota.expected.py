@@ -210,6 +210,7 @@ pay = (
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
         PANDAS_CSV_LISTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("keeper_pay.csv")
 )
@@ -236,6 +237,7 @@ cover = cover.with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
         PANDAS_CSV_LISTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("lock_cover.csv")
 )
@@ -248,6 +250,7 @@ unmanned = rota.filter((pl.col("hours") == 0) & (pl.col("boats") > 0)).collect()
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
         PANDAS_CSV_LISTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("self_worked.csv")
 )

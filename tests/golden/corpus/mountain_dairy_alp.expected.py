@@ -150,6 +150,7 @@ per_herder = per_herder.sort(
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("herder_wages.csv")
 )
@@ -195,6 +196,7 @@ per_alp = per_alp.with_columns(litres=pl.col("litres").round(1))
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("alp_days.csv")
 )

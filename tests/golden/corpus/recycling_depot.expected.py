@@ -99,7 +99,14 @@ per_material = (
         maintain_order=True,
     )
 )
-per_material.with_columns(PANDAS_CSV_INTS).sink_csv("material_totals.csv")
+(
+    per_material
+    .with_columns(
+        PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+    )
+    .sink_csv("material_totals.csv")
+)
 
 heavy = drops.filter(
     pl.col("weight_kg").is_between(20, 60) & pl.col("material").is_in(["glass", "metal"]),
@@ -129,6 +136,7 @@ heavy_households = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("heavy_households.csv")
 )
@@ -167,6 +175,7 @@ first_visit = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("household_first_visit.csv")
 )

@@ -234,6 +234,7 @@ pl.collect_all([
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
         )
         .sink_csv("out/gauge_daily_levels.csv", lazy=True)
     ),
@@ -244,6 +245,7 @@ pl.collect_all([
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
         )
         .sink_csv("out/gauge_peaks.csv", lazy=True)
     ),
@@ -255,6 +257,7 @@ pl.collect_all([
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
         )
         .sink_csv("out/river_monthly_flow.csv", lazy=True)
     ),

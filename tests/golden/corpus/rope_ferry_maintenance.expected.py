@@ -206,6 +206,7 @@ per_ferry = (
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
         PANDAS_CSV_LISTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("ferry_costs.csv")
 )
@@ -236,6 +237,7 @@ usage = usage.with_columns(spent=pl.col("spent").round(2))
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
         PANDAS_CSV_LISTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("data/part_usage.csv")
 )
@@ -256,6 +258,7 @@ deferred = (
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
         PANDAS_CSV_LISTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("deferred_parts.csv")
 )

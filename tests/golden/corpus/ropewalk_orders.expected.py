@@ -166,6 +166,7 @@ unread = (
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("lengths_to_query.csv")
 )
@@ -232,6 +233,7 @@ per_customer = per_customer.with_columns(metres=pl.col("metres").round(2))
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("customer_totals.csv")
 )
@@ -253,6 +255,7 @@ loads = loads.with_columns(metres=pl.col("metres").round(2))
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("fibre_loads.csv")
 )

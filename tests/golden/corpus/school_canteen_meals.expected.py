@@ -80,6 +80,7 @@ per_class = per_class.with_columns(cost=pl.col("cost").round(2))
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("class_costs.csv")
 )
@@ -97,6 +98,7 @@ menu_mix = menu_mix.rename({"pupil_id": "meals"})
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("menu_mix.csv")
 )
@@ -134,6 +136,7 @@ alerts = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("allergen_alerts.csv")
 )

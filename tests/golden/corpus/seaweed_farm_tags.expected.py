@@ -149,6 +149,7 @@ per_line = per_line.with_columns(dry_kg=pl.col("dry_kg").round(2))
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("line_yield.csv")
 )
@@ -175,6 +176,7 @@ weekly = weekly.sort(["species", "week"], nulls_last=True, maintain_order=True)
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("species_weeks.csv")
 )
@@ -193,6 +195,7 @@ unread = (
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("data/unread_tags.csv")
 )
