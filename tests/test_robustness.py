@@ -40,3 +40,20 @@ def test_number_group_keys_are_a_todo():
     # the frame itself has number labels: it stays on pandas, and so does its groupby
     assert "# TODO(porter): pd.DataFrame: column labels that are not text" in result.converted_text
     assert "r = df.groupby(0).sum()" in result.converted_text
+
+
+def test_a_comprehension_name_that_is_also_a_frame_stays_the_loop_name(tmp_path, monkeypatch):
+    # `[f"{a}_{b}" for a, b in e.columns]` after a frame called `a`: inside the comprehension
+    # `a` is the loop's value, never the frame (porter once rewrote the loop's target too)
+    from support import differential
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "t.csv").write_text("k,v\nx,1\ny,2\nx,5\n", encoding="utf-8")
+    differential("""
+import pandas as pd
+df = pd.read_csv("t.csv")
+a = df[df["v"] > 1]
+e = df.groupby("k").agg({"v": ["sum", "max"]})
+e.columns = [f"{a}_{b}" for a, b in e.columns]
+names = [a for a in df.columns if a != "k"]
+result = e.reset_index()
+""", "result", "names")

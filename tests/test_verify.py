@@ -202,3 +202,15 @@ def test_an_output_left_in_the_folder_by_an_earlier_run_is_still_compared(tmp_pa
     (tmp_path / "out.csv").write_text("k,v,w\na,1,2\nb,2,4\n", encoding="utf-8")
     result = verify(script, None, tmp_path)
     assert "out.csv" in [o.name for o in result.outputs]
+
+
+def test_a_data_folder_holding_the_temporary_folder_is_not_copied_into_itself(tmp_path, monkeypatch):
+    # `porter verify --data .` run from the system's temporary folder: the run's own folder
+    # is made inside the data folder, and copying the data must not copy it again and again
+    data = tmp_path / "work"
+    data.mkdir()
+    (data / "t.csv").write_text("k,v\nx,1\ny,2\n", encoding="utf-8")
+    (data / "a.py").write_text("import pandas as pd\npd.read_csv('t.csv').to_csv('o.csv', index=False)\n")
+    monkeypatch.setattr("tempfile.tempdir", str(data))
+    result = verify(data / "a.py", None, data)
+    assert result.verdict == "same", result

@@ -41,6 +41,7 @@ class ChildRewriter(cst.CSTTransformer):
         self.concatenations = 0  # depth of implicit string concatenations being visited
         self.format_calls: dict[int, tuple[cst.CSTNode, cst.Call]] = {}
         self.attributes: set[int] = set()  # attributes whose receiver alone is rewritten
+        self.targets: set[int] = set()  # loop targets of the comprehension being rewritten
 
     def on_visit(self, node: cst.CSTNode) -> bool:
         if isinstance(node, cst.FormattedString):
@@ -50,7 +51,11 @@ class ChildRewriter(cst.CSTTransformer):
             self.concatenations += 1
             return True
         if node is self.root:
+            if isinstance(node, _COMPREHENSIONS):
+                self._enter_comprehension(node)
             return True
+        if id(node) in self.targets:
+            return False  # the names a comprehension binds are written as they are
         if isinstance(node, (cst.Lambda, cst.ListComp, cst.SetComp, cst.DictComp,
                              cst.GeneratorExp)):
             return self._visit_scope(node)
@@ -64,6 +69,23 @@ class ChildRewriter(cst.CSTTransformer):
             self._replace(node, display=self.display)
             return False
         return True
+
+    def _enter_comprehension(self, node: cst.CSTNode) -> None:
+        """A comprehension rewritten as a whole: its loop names shadow the script's names
+        (`[f"{a}_{b}" for a, b in e.columns]` with a frame called `a`), so inside it they are
+        plain values, and its targets are never rewritten."""
+        from porter.translate.evaluate import Evaluator
+
+        bound: set[str] = set()
+        for_in = getattr(node, "for_in", None)
+        while for_in is not None:
+            self.targets.add(id(for_in.target))
+            bound |= {n.value for n in _names_in(for_in.target)}
+            for_in = for_in.inner_for_in
+        shadowed = bound & set(self.evaluator.env)
+        if shadowed:
+            env = {k: v for k, v in self.evaluator.env.items() if k not in shadowed}
+            self.evaluator = Evaluator(env, self.evaluator.services)
 
     def _visit_scope(self, node: cst.CSTNode) -> bool:
         # Names bound inside a lambda or comprehension are not the script's frames; only the
@@ -163,6 +185,20 @@ class ChildRewriter(cst.CSTTransformer):
             self.unfit.add(id(fstring))
             return replacement
         return replacement if fitted == text else cst.parse_expression(fitted)
+
+
+_COMPREHENSIONS = (cst.ListComp, cst.SetComp, cst.DictComp, cst.GeneratorExp)
+
+
+def _names_in(node: cst.CSTNode) -> list[cst.Name]:
+    found: list[cst.Name] = []
+
+    class Names(cst.CSTVisitor):
+        def visit_Name(self, n: cst.Name) -> None:
+            found.append(n)
+
+    node.visit(Names())
+    return found
 
 
 def precedence(node: cst.CSTNode) -> int:

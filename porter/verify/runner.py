@@ -59,7 +59,11 @@ def run_side(script_text: str, script_rel: str, data_dir: Path, side_dir: Path, 
     are not looked at; only how it ended and what it cost are reported.
     """
     work = side_dir / "work"
-    shutil.copytree(data_dir, work, symlinks=True)
+    # the data folder may hold this very run's folder (`--data .` in the temp directory):
+    # it is not copied into itself
+    inside = side_dir.resolve()
+    shutil.copytree(data_dir, work, symlinks=True, ignore=lambda folder, names: [
+        n for n in names if (Path(folder) / n).resolve() in (inside, *inside.parents)])
     script = work / script_rel
     script.parent.mkdir(parents=True, exist_ok=True)
     script.write_text(script_text, encoding="utf-8")
