@@ -61,18 +61,18 @@ PORTS = [
                  id="strftime microseconds"),
     # pandas' own pattern picks the values that parse and rewrites them into one layout
     pytest.param('pd.to_datetime(df["raw"], format="%Y-%m-%d %H:%M:%S", errors="coerce")',
-                 '"${Y}-${m}-${d} ${H}:${M}:${S}=").str.to_datetime("%Y-%m-%d %H:%M:%S=", '
+                 '"${Y}/${m}/${d} ${H}:${M}:${S}=").str.to_datetime("%Y/%m/%d %H:%M:%S=", '
                  'time_unit="us", strict=False)', id="to_datetime errors=coerce"),
     pytest.param('pd.to_datetime(df["raw"], format="%d/%m/%Y")',
                  'pl.col("raw").replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)'
                  '.str.replace("(?i)^(?:(?P<d>', id="to_datetime format"),
     pytest.param('pd.to_datetime(df["raw"], format="%Y-%m-%d %H:%M:%S.%f")',
-                 'str.to_datetime("%Y-%m-%d %H:%M:%S%.f=", time_unit="us")',
+                 'str.to_datetime("%Y/%m/%d %H:%M:%S%.f=", time_unit="us")',
                  id="to_datetime fraction"),
     pytest.param('pd.to_datetime(df["raw"], format="%I:%M %p")',
-                 '"1900-1-1 ${I}:${M}:0 ${p}=").str.to_datetime("%Y-%m-%d %I:%M:%S %p="',
+                 '"1900/1/1 ${I}:${M}:0 ${p}=").str.to_datetime("%Y/%m/%d %I:%M:%S %p="',
                  id="to_datetime time only"),
-    pytest.param('pd.to_datetime(df["raw"])', 'pl.col("raw").str.to_datetime(time_unit="us")',
+    pytest.param('pd.to_datetime(df["raw"])', 'pandas_to_datetime(pl.col("raw"), coerce=False)',
                  id="to_datetime without format"),
 ]
 
@@ -278,7 +278,7 @@ def test_to_datetime_without_format_iso() -> None:
     result = differential(HEAD + 'df = pd.DataFrame({"raw": ["2024-01-05", None, "2023-12-31"]})\n'
                           'df["t"] = pd.to_datetime(df["raw"], errors="coerce")\nresult = df\n')
     site = next(s for s in result.sites if s.key == "pd.to_datetime")
-    assert site.confidence == 0.7 and "month first" in site.message
+    assert site.confidence == 0.8 and "first value" in site.message
 
 
 def test_to_datetime_of_a_datetime_column_keeps_it() -> None:
@@ -316,12 +316,89 @@ def test_each_call_of_a_chain_is_reported() -> None:
     assert "pd.to_datetime" in keys and "series.dt.year" in keys and "frame.getitem.column" in keys
 
 
-@pytest.mark.xfail(strict=True, raises=AssertionError,
-                   reason="documented caveat (confidence 0.7, D01): without a format pandas "
-                   "reads 05/03/2024 month first, Polars guesses day first")
-def test_known_difference_to_datetime_guess() -> None:
-    differential(HEAD + 'df = pd.DataFrame({"raw": ["05/03/2024", "06/04/2024"]})\n'
-                 'df["t"] = pd.to_datetime(df["raw"])\nresult = df\n')
+GUESSES = [
+    # pandas reads 01/05/2024 month first; 13/01/2024 first makes it day first for all
+    pytest.param('["01/05/2024", "01/13/2024", "12/31/2024", None, "02/29/2024", "13/01/2024"]',
+                 "coerce", id="month first"),
+    pytest.param('["13/01/2024", "01/05/2024", "31/12/2024", "02/29/2024"]', "coerce",
+                 id="day first from the first value"),
+    pytest.param('["01/05/2024", "01/13/2024", "12/31/2024", None]', "raise",
+                 id="month first, raise"),
+    # one format for all: the date-times after a date are NaT, as in pandas
+    pytest.param('["2024-01-05", "2024-01-06 10:00", "2024-01-07T11:30:00", "2024-1-8"]',
+                 "coerce", id="dates then date-times"),
+    pytest.param('["2024-01-05 10:00:00", "2024-01-05 10:00:00.5", "2024-01-05", None]',
+                 "coerce", id="date-times then fractions"),
+    pytest.param('["Jan 5, 2024", "feb 29, 2024", "May 31, 2024", "January 5, 2024"]', "coerce",
+                 id="month names"),
+    pytest.param('["May 5, 2024", "June 1, 2024", "Jan 5, 2024", "March 3, 2024"]', "coerce",
+                 id="May is a full name"),
+    pytest.param('["5 Jan 2024", "05 DEC 2023", None]', "raise", id="day month year"),
+    # pandas' first value skips missing values and its texts for NaT
+    pytest.param('[None, "", "NaT", "13/01/2024", "02/03/2024"]', "coerce", id="first value"),
+    pytest.param('["", "20240105", "20241231", "2024-01-05"]', "coerce", id="compact"),
+    pytest.param('["2024-01-05T10:00:00.123", "2024-02-29T23:59:59.5", "2024-01-05T10:00:00"]',
+                 "coerce", id="ISO with fractions"),
+]
+
+
+@pytest.mark.parametrize("values, errors", GUESSES)
+def test_to_datetime_without_format_follows_pandas_guess(values: str, errors: str) -> None:
+    # pandas is the reference implementation: one format guessed from the first value
+    source = (HEAD + f'df = pd.DataFrame({{"raw": {values}}})\n'
+              f'df["t"] = pd.to_datetime(df["raw"], errors="{errors}")\nresult = df\n')
+    result = differential(source)
+    assert "TODO(porter)" not in result.converted_text, result.converted_text
+
+
+@pytest.mark.parametrize("values", [
+    # 01/05/2024 makes the format month first, and 13/01/2024 does not fit it
+    pytest.param('["01/05/2024", "13/01/2024"]', id="month first"),
+    # an impossible first date: pandas guesses no format and dateutil refuses it
+    pytest.param('["02/30/2024", "01/05/2024"]', id="impossible first date"),
+])
+def test_to_datetime_without_format_raises_where_pandas_raises(values: str) -> None:
+    # pandas is the reference implementation
+    source = (HEAD + f'df = pd.DataFrame({{"raw": {values}}})\n'
+              'df["t"] = pd.to_datetime(df["raw"])\nresult = df\n')
+    with pytest.raises(ValueError):
+        run(source)
+    with pytest.raises(pl.exceptions.InvalidOperationError):
+        run(convert(source).converted_text)["result"].collect()
+
+
+def test_guessed_formats_are_pandas_guesses() -> None:
+    # pandas' guess_datetime_format is the reference: for first values of every listed
+    # format, the first format whose selection reads the value is pandas' guess, or pandas
+    # guesses none of the listed formats and the selection reads none
+    import itertools
+    import re
+    import warnings
+    import pandas as pd
+    from pandas.tseries.api import guess_datetime_format
+    from porter.rules.datetimes import GUESSED_FORMATS, guess_selection
+
+    parts = {"%Y": ["2024", "1999", "0999", "1000"], "%m": ["01", "1", "12", "13", " 1"],
+             "%d": ["05", "5", "31", "13", " 5", "00"], "%H": ["07", "7", "23", "24"],
+             "%M": ["05", "5", "60"], "%S": ["09", "60"], "%f": ["5", "123456", "1234567"],
+             "%b": ["Jan", "jan", "JUN", "May", "Sept"], "%B": ["January", "may", "June"]}
+    selections = [(fmt, re.compile(guess_selection(fmt))) for fmt in GUESSED_FORMATS]
+    checked = 0
+    for fmt in GUESSED_FORMATS:
+        pieces = re.split(r"(%[a-zA-Z])", fmt)
+        choices = [parts.get(p, [p, p + p] if p in (" ", "-", "/") else [p]) for p in pieces]
+        for combo in itertools.islice(itertools.product(*choices), 3000):
+            value = "".join(combo)
+            with warnings.catch_warnings():
+                warnings.simplefilter("ignore")
+                guess = guess_datetime_format(value)
+            # the first whose selection reads the value and whose format reads a real date
+            chosen = next((f for f, r in selections if r.search(value) and not pd.isna(
+                pd.to_datetime(value, format=f, errors="coerce"))), None)
+            if chosen is not None:
+                checked += 1
+                assert chosen == guess, (value, chosen, guess)
+    assert checked > 1000
 
 
 def test_to_datetime_empty_string_is_nat() -> None:

@@ -372,15 +372,16 @@ _REGEX_META = set("\\.+*?()|[]{}^$")
 class Strptime:
     """A pandas format as a regex replacement and a chrono format: the pattern (pandas' own)
     rewrites a value it matches into `text`, which Polars reads with `chrono`; any other value
-    keeps its text behind an empty field, which Polars cannot read."""
+    keeps its text behind empty fields, which Polars cannot read."""
 
     pattern: str
     text: str
     chrono: str
 
 
-def strptime_port(fmt: str) -> Strptime | str:
-    """pandas' strptime of `fmt` as a Strptime, or why it is not ported that way."""
+def _pattern(fmt: str, fields: dict[str, str], blanks: str) -> tuple[str, list[str]] | str:
+    """The regex of `fmt` (one named group per directive, a run of blanks as `blanks`) and its
+    directives, or why there is none."""
     pattern: list[str] = []
     seen: list[str] = []
     i = 0
@@ -392,19 +393,31 @@ def strptime_port(fmt: str) -> Strptime | str:
             if directive == "%":
                 pattern.append("%")
                 continue
-            if directive not in _STRPTIME:
+            if directive not in fields:
                 return f"the directive %{directive}"
             if directive in seen:
                 return f"%{directive} twice (pandas refuses the format)"
             seen.append(directive)
-            pattern.append(f"(?P<{directive}>{_STRPTIME[directive]})")
+            pattern.append(f"(?P<{directive}>{fields[directive]})")
         elif char.isspace():
             while i < len(fmt) and fmt[i].isspace():
                 i += 1
-            pattern.append(r"\s+")
+            pattern.append(blanks)
         else:
             pattern.append("\\" + char if char in _REGEX_META else char)
             i += 1
+    return "".join(pattern), seen
+
+
+def strptime_port(fmt: str, *, fields: dict[str, str] | None = None,
+                  month_number: bool = False) -> Strptime | str:
+    """pandas' strptime of `fmt` as a Strptime, or why it is not ported that way. `fields`:
+    stricter patterns (case-sensitive, one blank for a blank, a whole match); `month_number`:
+    a month name is written where the layout reads a number (the caller replaces it)."""
+    found_pattern = _pattern(fmt, fields or _STRPTIME, " " if fields else r"\s+")
+    if isinstance(found_pattern, str):
+        return found_pattern
+    body, seen = found_pattern
     found = set(seen)
     if not found:
         return "a format without directives"
@@ -415,14 +428,16 @@ def strptime_port(fmt: str) -> Strptime | str:
         return "one part of the date written twice"
     if "f" in found and "S" not in found:
         return "%f without %S"
-    # every part pandas fills in when the format leaves it out: 1900-01-01 00:00:00
+    # every part pandas fills in when the format leaves it out: 1900-01-01 00:00:00. The
+    # separators are not signs: an empty field (a value the pattern does not match) is never
+    # read as a number
     year = next((d for d in "Yy" if d in found), None)
     month = next((d for d in "mbB" if d in found), None)
     hour = "I" if "I" in found else "H" if "H" in found else None
     pieces = [("${%s}" % year, f"%{year}") if year else ("1900", "%Y"),
-              ("-", "-"),
-              ("${%s}" % month, f"%{month}") if month else ("1", "%m"),
-              ("-", "-"),
+              ("/", "/"),
+              ("${%s}" % month, "%m" if month_number else f"%{month}") if month else ("1", "%m"),
+              ("/", "/"),
               ("${d}", "%d") if "d" in found else ("1", "%d"),
               (" ", " "),
               ("${%s}" % hour, f"%{hour}") if hour else ("0", "%H"),
@@ -435,8 +450,103 @@ def strptime_port(fmt: str) -> Strptime | str:
     if "p" in found:
         pieces.append((" ${p}", " %p"))
     pieces.append(("=", "="))  # what a match leaves over follows: Polars refuses it
-    return Strptime(pattern="(?i)^(?:" + "".join(pattern) + ")|^",
-                    text="".join(p for p, _ in pieces), chrono="".join(c for _, c in pieces))
+    pattern = f"^(?:{body})$" if fields else f"(?i)^(?:{body})|^"
+    return Strptime(pattern=pattern, text="".join(p for p, _ in pieces),
+                    chrono="".join(c for _, c in pieces))
+
+
+# Without format=, pandas guesses one format from the first value (pandas.tseries.api.
+# guess_datetime_format: month first, a year of 4 digits, months' names as written in English)
+# and parses every value with it; another value is NaT, or an error. These are the formats
+# porter follows: the first of them whose strict pattern reads the whole first value is
+# pandas' guess (tests/test_rules_datetimes.py checks it value by value against
+# guess_datetime_format). A first value pandas guesses no format for is read by dateutil
+# value by value in pandas: no dates here, an error with errors="raise".
+GUESSED_FORMATS = (
+    "%Y-%m-%d", "%Y-%m-%d %H:%M", "%Y-%m-%d %H:%M:%S", "%Y-%m-%d %H:%M:%S.%f",
+    "%Y-%m-%dT%H:%M:%S", "%Y-%m-%dT%H:%M:%S.%f", "%Y/%m/%d", "%Y%m%d",
+    "%m/%d/%Y", "%d/%m/%Y", "%m/%d/%Y %H:%M", "%d/%m/%Y %H:%M", "%m/%d/%Y %H:%M:%S",
+    "%d/%m/%Y %H:%M:%S", "%m.%d.%Y", "%d.%m.%Y",
+    "%B %d, %Y", "%b %d, %Y", "%d %B %Y", "%d %b %Y",
+)
+_MONTHS = ("January", "February", "March", "April", "May", "June", "July", "August",
+           "September", "October", "November", "December")
+_GUESS_FIELDS = {
+    "Y": "[1-9][0-9]{3}", "m": "1[0-2]|0[1-9]|[1-9]", "d": "3[01]|[12][0-9]|0[1-9]|[1-9]",
+    "H": "2[0-3]|[01][0-9]|[0-9]", "M": "[0-5][0-9]|[0-9]", "S": "[0-5][0-9]|[0-9]",
+    "f": "[0-9]{1,6}", "b": "|".join(m[:3] for m in _MONTHS),
+    "B": "|".join(sorted(_MONTHS, key=len, reverse=True)),
+}
+# eight digits: pandas guesses no format for 2024015
+_GUESS_COMPACT = {**_GUESS_FIELDS, "m": "1[0-2]|0[1-9]", "d": "3[01]|[12][0-9]|0[1-9]"}
+# pandas' first value: the first that is not missing, not one of its texts for NaT, not
+# "now" or "today"
+_NOT_FIRST = [*NAT_TEXTS, "now", "today"]
+
+
+def guess_selection(fmt: str) -> str:
+    """The regex of the first values for which pandas guesses `fmt` (before the formats
+    after it in GUESSED_FORMATS)."""
+    found = _pattern(fmt, _GUESS_COMPACT if fmt == "%Y%m%d" else _GUESS_FIELDS, " ")
+    assert not isinstance(found, str)
+    return "^" + re.sub(r"\(\?P<.>", "(?:", found[0]) + "$"
+
+
+def _guess_definition() -> str:
+    """The function, defined once at the top of a converted script, that reads dates as
+    pd.to_datetime without format= reads them (see GUESSED_FORMATS)."""
+    rows = []
+    for fmt in GUESSED_FORMATS:
+        port = strptime_port(fmt, month_number=True)
+        assert isinstance(port, Strptime)
+        rows.append(f"            # {fmt}\n"
+                    f"            ({guess_selection(fmt)!r},\n"
+                    f"             {port.pattern!r},\n"
+                    f"             {port.text!r}),\n")
+    names = [*_MONTHS, *(m[:3] for m in _MONTHS)]
+    numbers = [str(i % 12 + 1) for i in range(24)]
+    return (
+        f"def {GUESS_FUNCTION}(text, coerce):\n"
+        '    """pd.to_datetime(text) without format=, as pandas reads it: pandas guesses one\n'
+        "    format from the first value (the first format below whose first pattern reads a\n"
+        "    real date in it) and reads every value with it (the second pattern); a value it\n"
+        "    does not fit is missing (coerce) or an error, as is a first value in none of\n"
+        '    these formats. Each value is rewritten into one layout Polars reads."""\n'
+        "    def read(layouts, strict):\n"
+        f"        return (layouts.str.replace_many({names!r},\n"
+        f"                                          {numbers!r},\n"
+        "                                          ascii_case_insensitive=True, leftmost=True)\n"
+        f"                .str.to_datetime({_GUESS_LAYOUT!r}, time_unit=\"us\", strict=strict))\n"
+        "\n"
+        f"    first = text.filter(~text.is_in({_NOT_FIRST!r})).first()\n"
+        "    if not coerce:  # pandas' texts for NaT are missing, not an error\n"
+        f"        text = text.replace({NAT_TEXTS!r}, None)\n"
+        "    guessed = [\n"
+        "        pl.when(first.str.contains(selection)\n"
+        "                & read(first.str.replace(pattern, layout), False).is_not_null())\n"
+        "        .then(text.str.replace(pattern, layout))\n"
+        "        for selection, pattern, layout in FORMATS\n"
+        "    ]\n"
+        "    return read(pl.coalesce(guessed if coerce else [*guessed, text]), not coerce)\n"
+    ).replace("in FORMATS", "in [\n" + "".join(rows) + "        ]")
+
+
+def guessed_parse(column: Code, *, coerce: bool) -> Code:
+    """pd.to_datetime(column) without format=: the format pandas guesses from the first value,
+    among GUESSED_FORMATS, applied to every value as an explicit format is."""
+    return emit.call(GUESS_FUNCTION, column, coerce=coerce)
+
+
+_GUESS_LAYOUT = "%Y/%m/%d %H:%M:%S%.f="
+GUESS_FUNCTION = "pandas_to_datetime"
+GUESS_DEFINITION = _guess_definition()
+GUESS_REASON = ("no format: pandas guesses one from the first value and reads every value "
+                "with it; porter follows its guess for ISO dates and times, 01/05/2024 (month "
+                "first, or day first from 13/01/2024), 20240105, 5 Jan 2024 and Jan 5, 2024; "
+                "a first value in another layout (a two-digit year, a time zone, am/pm, an "
+                "impossible day such as 02/30/2024) gives no dates here (an error with "
+                "errors='raise') where pandas reads each value by itself; write format= to be "
+                "sure")
 
 
 def parse_format(fmt: str, ctx: RuleContext, *, years_fixed: bool = False) -> str:
@@ -474,8 +584,13 @@ def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
     before any number). The parts a format leaves out are pandas' 1900-01-01 00:00:00 (a
     time-only format such as "%H:%M"). "", "NaT" and "nan" are NaT with errors="raise" too;
     %y's 69 is read as 1969 as Python reads it; a column that already holds datetimes is kept.
-    Caveats: without a format both guess it from the first value, but pandas reads 05/03/2024
-    month first and Polars day first (0.7); %f keeps microseconds where pandas keeps
+    Without format=, pandas_to_datetime (defined once at the top of the script) follows
+    pandas' guess of one format from the first value among GUESSED_FORMATS (ISO dates and
+    times, 01/05/2024 month first or 13/01/2024 day first, 20240105, Jan 5, 2024, 5 Jan 2024)
+    and reads every value with it: the values it does not fit are NaT, or an error.
+    Caveats: without a format, a first value in another layout (two-digit years, time zones,
+    am/pm, an impossible day) is read by dateutil value by value in pandas: no dates here
+    (an error with errors="raise") (0.8); %f keeps microseconds where pandas keeps
     nanoseconds (0.9); other directives (%j) keep Polars' own parser, which also takes values
     pandas refuses (0.8); a second of 61 rolls over into the next minute in pandas and is
     missing here; a year in non-ASCII digits ("２024") and year 0000 in an ISO format (an error
@@ -503,11 +618,8 @@ def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
     text = column.code.attr("str")
     nat_texts = '"" and "NaT" are missing in pandas and an error in Polars (strict)'
     if fmt is None:
-        if errors == "raise":
-            ctx.lower(nat_texts, 0.95)
-        ctx.lower("no format: pandas reads 05/03/2024 as May 3 (month first), Polars guesses "
-                  "day first; write format= to be sure", 0.7)
-        code = text.method("to_datetime", time_unit="us", **options)
+        ctx.lower(GUESS_REASON, 0.8)
+        code = guessed_parse(column.code, coerce=errors == "coerce")
     else:
         if not isinstance(fmt, str):
             raise ctx.todo("the format must be text")

@@ -66,9 +66,9 @@ visits = visits.with_columns(
     day=pl.col("day")
     .str.replace(
         "(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^",
-        "${Y}-${m}-${d} 0:0:0=",
+        "${Y}/${m}/${d} 0:0:0=",
     )
-    .str.to_datetime("%Y-%m-%d %H:%M:%S=", time_unit="us", strict=False),
+    .str.to_datetime("%Y/%m/%d %H:%M:%S=", time_unit="us", strict=False),
 )
 visits = visits.with_columns(weekday=pl.col("day").dt.weekday().cast(pl.Int32) - 1)
 long_names = visits.filter(pl.col("name").str.len_chars().cast(pl.Int64) > 10)

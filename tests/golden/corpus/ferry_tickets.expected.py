@@ -104,9 +104,9 @@ tickets = tickets.with_columns(
     .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
     .str.replace(
         "(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^",
-        "${Y}-${m}-${d} 0:0:0=",
+        "${Y}/${m}/${d} 0:0:0=",
     )
-    .str.to_datetime("%Y-%m-%d %H:%M:%S=", time_unit="us"),
+    .str.to_datetime("%Y/%m/%d %H:%M:%S=", time_unit="us"),
 )
 tickets = tickets.with_columns(
     weekday=pl.col("sail_date").dt.weekday().cast(pl.Int32) - 1,

@@ -69,26 +69,26 @@ def load_loans(path):
         .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
         .str.replace(
             "(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^",
-            "${Y}-${m}-${d} 0:0:0=",
+            "${Y}/${m}/${d} 0:0:0=",
         )
-        .str.to_datetime("%Y-%m-%d %H:%M:%S=", time_unit="us"),
+        .str.to_datetime("%Y/%m/%d %H:%M:%S=", time_unit="us"),
     )
     loans = loans.with_columns(
         due_on=pl.col("due_on")
         .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
         .str.replace(
             "(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^",
-            "${Y}-${m}-${d} 0:0:0=",
+            "${Y}/${m}/${d} 0:0:0=",
         )
-        .str.to_datetime("%Y-%m-%d %H:%M:%S=", time_unit="us"),
+        .str.to_datetime("%Y/%m/%d %H:%M:%S=", time_unit="us"),
     )
     loans = loans.with_columns(
         returned_on=pl.col("returned_on")
         .str.replace(
             "(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^",
-            "${Y}-${m}-${d} 0:0:0=",
+            "${Y}/${m}/${d} 0:0:0=",
         )
-        .str.to_datetime("%Y-%m-%d %H:%M:%S=", time_unit="us", strict=False),
+        .str.to_datetime("%Y/%m/%d %H:%M:%S=", time_unit="us", strict=False),
     )
     return loans
 

@@ -80,9 +80,9 @@ readings = (
         read_at=pl.col("read_at")
         .str.replace(
             "(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]))|^",
-            "${Y}-${m}-${d} ${H}:${M}:0=",
+            "${Y}/${m}/${d} ${H}:${M}:0=",
         )
-        .str.to_datetime("%Y-%m-%d %H:%M:%S=", time_unit="us", strict=False),
+        .str.to_datetime("%Y/%m/%d %H:%M:%S=", time_unit="us", strict=False),
     )
     .collect()
     .lazy()

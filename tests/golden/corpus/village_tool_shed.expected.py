@@ -119,9 +119,9 @@ loans = loans.with_columns(
     .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
     .str.replace(
         "(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^",
-        "${Y}-${m}-${d} 0:0:0=",
+        "${Y}/${m}/${d} 0:0:0=",
     )
-    .str.to_datetime("%Y-%m-%d %H:%M:%S=", time_unit="us"),
+    .str.to_datetime("%Y/%m/%d %H:%M:%S=", time_unit="us"),
 )
 loans = loans.with_columns(lost=(pl.col("back_date") == "lost").fill_null(False))
 loans = loans.with_columns(broken=(pl.col("condition") == "broken").fill_null(False))
@@ -129,9 +129,9 @@ loans = loans.with_columns(
     back_date=pl.col("back_date")
     .str.replace(
         "(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^",
-        "${Y}-${m}-${d} 0:0:0=",
+        "${Y}/${m}/${d} 0:0:0=",
     )
-    .str.to_datetime("%Y-%m-%d %H:%M:%S=", time_unit="us", strict=False),
+    .str.to_datetime("%Y/%m/%d %H:%M:%S=", time_unit="us", strict=False),
 )
 loans = (
     loans
