@@ -28,9 +28,9 @@ DATETIME_HINTS = re.compile(r"parse_dates|to_datetime|read_parquet|read_excel|re
 # type for): its CSV writes then format duration columns as pandas does
 # a division (x / 0 is inf) or an infinity written out: pandas' windows take inf as missing
 INFINITY_HINTS = re.compile(r"[^/]/[^/=]|\binf\b|np\.inf|Infinity")
-# lists of text in a column (str.split, a function that splits): a frame back from pandas
-# with its types unknown may hold them
-LIST_HINTS = re.compile(r"split\(")
+# lists in a column (str.split, a function that splits; apply(list), agg(x=("n", list))): a
+# frame back from pandas with its types unknown may hold them
+LIST_HINTS = re.compile(r"split\(|[(,:]\s*list\s*[),}]")
 DURATION_HINTS = re.compile(r"[Tt]imedelta|DateOffset|\.dt\.(days|seconds|total_seconds|components)")
 # what can make pandas' nullable integer columns (written 2024 where a plain integer column with
 # a missing value, float in pandas, is written 2024.0); dt.isocalendar() makes UInt32 / Int32 ones

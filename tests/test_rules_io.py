@@ -887,3 +887,46 @@ def test_to_csv_with_na_rep_says_an_empty_text_is_quoted() -> None:
                      'df.to_csv("out.csv", index=False, na_rep="-")\n')
     site = next(s for s in result.sites if s.key == "frame.to_csv")
     assert site.confidence <= 0.9 and "empty text" in site.message, site
+
+
+@pytest.mark.parametrize("make", [
+    'b = df.groupby("g")["n"].apply(list).reset_index()',
+    'b = df.groupby("g")["v"].apply(list).reset_index()',
+    'b = df.groupby("g").agg(ns=("n", list), vs=("v", list), oks=("ok", list)).reset_index()',
+])
+@pytest.mark.parametrize("with_data", [False, True], ids=["", "with --data"])
+def test_to_csv_writes_lists_of_numbers_as_pandas_writes_them(
+        make: str, with_data: bool, data: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    # lists back from pandas: Polars' CSV writer refused them, pandas writes str(list), floats
+    # by Python's repr (1e-05, nan)
+    (data / "l.csv").write_text("g,n,v,ok\na,1,1.5,True\na,2,,False\nb,3,0.00001,True\n"
+                                "b,4,1e16,True\n", encoding="utf-8")
+    source = f'import pandas as pd\ndf = pd.read_csv("l.csv")\n{make}\nb.to_csv("out.csv", index=False)\n'
+    converted = convert(source, **({"data_dir": str(data)} if with_data else {})).converted_text
+    for side, text in (("pandas", source), ("polars", converted)):
+        (data / side).mkdir()
+        (data / side / "l.csv").write_text((data / "l.csv").read_text(), encoding="utf-8")
+        monkeypatch.chdir(data / side)
+        run(text)
+    assert (data / "polars" / "out.csv").read_text(encoding="utf-8") == \
+        (data / "pandas" / "out.csv").read_text(encoding="utf-8"), converted
+
+
+def test_to_csv_of_lists_where_the_script_makes_arrays_says_so() -> None:
+    # groupby unique gives numpy arrays, which pandas writes [1 2]
+    result = convert('import pandas as pd\ndf = pd.DataFrame({"g": ["a", "a"], "n": [1, 2]})\n'
+                     'b = df.groupby("g")["n"].unique().reset_index()\n'
+                     'c = df.groupby("g")["n"].apply(list).reset_index()\n'
+                     'b.to_csv("b.csv", index=False)\n')
+    site = next(s for s in result.sites if s.key == "frame.to_csv")
+    assert site.confidence <= 0.9 and "[1 2]" in site.message, site
+
+
+def test_to_csv_of_lists_from_a_function_returning_arrays_says_so() -> None:
+    result = convert('import pandas as pd\ndf = pd.DataFrame({"g": ["a", "a"], "n": [1, 2]})\n'
+                     'def kinds(s):\n    return s.unique()\n'
+                     'c = df.groupby("g")["n"].apply(list).reset_index()\n'
+                     'b = df.groupby("g")["n"].apply(kinds).reset_index()\n'
+                     'b.to_csv("b.csv", index=False)\n')
+    site = next(s for s in result.sites if s.key == "frame.to_csv")
+    assert site.confidence <= 0.9 and "[1 2]" in site.message, site

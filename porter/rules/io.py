@@ -10,7 +10,8 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_DURATIONS_CONSTANT,
-                                     CSV_INTS_CONSTANT, CSV_LISTS_CONSTANT, DTYPES,
+                                     CSV_INTS_CONSTANT, CSV_LISTS_CONSTANT,
+                                     CSV_NUMBER_LISTS_CONSTANT, DTYPES,
                                      NA_CONSTANT, NOT_DECOMPRESSED, PANDAS_NA_TOKENS,
                                      POLARS_CSV_COMPRESSION, compression_of, is_number, is_url,
                                      na_value_texts, written_compression)
@@ -360,7 +361,9 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     than UTF-8 are TODOs; gzip and zstd compression, given or inferred from the name as pandas
     infers it (bz2, zip, xz and tar are TODOs: Polars' sink does not write them); an empty
     text as an empty field, as pandas writes it (Polars quotes it; with na_rep given it still
-    does: 0.9).
+    does: 0.9); columns of lists of text, numbers or True/False as pandas writes str(list)
+    (numpy arrays, which pandas writes [1 2], are lists in Polars: 0.9 where the script may
+    make them).
     Caveats: booleans and datetimes are written as pandas writes them (True/False, no `T`);
     an integer column holding a missing value as floats (2024.0: float64 in pandas), unless
     the script can make pandas' nullable integers, which porter does not tell apart (0.9); a
@@ -570,16 +573,42 @@ def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
         else:
             out.append(emit.atom(CSV_INTS_CONSTANT))
     if ctx.lists_possible and not complete:
-        # lists of text in columns porter may not know of (a frame back from pandas): Polars'
-        # CSV writer refuses nested data, pandas writes str(list); the selector finds them all
+        # lists in columns porter may not know of (a frame back from pandas): Polars' CSV
+        # writer refuses nested data, pandas writes str(list); the selectors find them all
         ctx.lower(_LIST_REPR_CAVEAT, 0.99)
-        out.append(emit.atom(CSV_LISTS_CONSTANT))
+        out += [emit.atom(CSV_LISTS_CONSTANT), emit.atom(CSV_NUMBER_LISTS_CONSTANT)]
+        if _makes_arrays(ctx):
+            ctx.lower("the script may put numpy arrays in a column (unique()), which pandas "
+                      "writes [1 2]; Polars holds them as lists, written [1, 2] here", 0.9)
         return out
     for name, kind in frame.dtypes:  # lists of text (str.split): pandas writes str(list)
         if kind == LIST_STR and (frame.columns is None or name in frame.columns):
             ctx.lower(_LIST_REPR_CAVEAT, 0.99)
             out.append(list_repr(emit.col(name)).method("alias", name))
     return out
+
+
+def _makes_arrays(ctx: RuleContext) -> bool:
+    """Whether the script may put numpy arrays in a column: a groupby's unique(), or a
+    function (a lambda, or what a def returns) giving .values / .to_numpy() / .unique() /
+    np.array."""
+    import ast
+
+    def attrs(node: ast.AST) -> set[str]:
+        return {n.attr for n in ast.walk(node) if isinstance(n, ast.Attribute)}
+
+    module = ctx.python_module
+    if module is None:
+        return True
+    for node in ast.walk(module):
+        if isinstance(node, ast.Attribute) and node.attr == "unique" and "groupby" in attrs(node.value):
+            return True
+        given = [node.body] if isinstance(node, ast.Lambda) else \
+            [n.value for n in ast.walk(node) if isinstance(n, ast.Return) and n.value is not None] \
+            if isinstance(node, ast.FunctionDef) else []
+        if any(attrs(value) & {"values", "to_numpy", "unique", "array"} for value in given):
+            return True
+    return False
 
 
 @rule("frame.to_parquet")

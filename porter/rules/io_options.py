@@ -117,6 +117,24 @@ PANDAS_CSV_LISTS = pl.format(
 )
 """
 
+# An expression, defined once at the top of a converted script, that writes every column of
+# lists of numbers or True/False the way pandas' to_csv writes a Python list: str(list).
+CSV_NUMBER_LISTS_CONSTANT = "PANDAS_CSV_NUMBER_LISTS"
+CSV_NUMBER_LISTS_DEFINITION = """\
+# Columns of lists of numbers or True/False as pandas' to_csv writes them: Python's str of the
+# list ([1, 2], [1.5, nan, 1e-05], [True]); a missing float in a list is NaN in pandas.
+PANDAS_CSV_NUMBER_LISTS = pl.selectors.by_dtype(
+    pl.List(pl.Int8), pl.List(pl.Int16), pl.List(pl.Int32), pl.List(pl.Int64),
+    pl.List(pl.UInt8), pl.List(pl.UInt16), pl.List(pl.UInt32), pl.List(pl.UInt64),
+    pl.List(pl.Float64), pl.List(pl.Boolean),
+).map_elements(
+    lambda values: str(
+        [float("nan") if v is None and values.dtype == pl.Float64 else v for v in values]
+    ),
+    return_dtype=pl.String,
+)
+"""
+
 # A function, defined once at the top of a converted script, that gives a row to the script's
 # own row function as pandas' apply(axis=1) gives it: a missing value is NaN.
 ROW_FUNCTION = "pandas_row"

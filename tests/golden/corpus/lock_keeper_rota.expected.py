@@ -22,6 +22,19 @@ PANDAS_CSV_INTS = (
     .otherwise(pl.selectors.integer().cast(pl.String))
 )
 
+# Columns of lists of numbers or True/False as pandas' to_csv writes them: Python's str of the
+# list ([1, 2], [1.5, nan, 1e-05], [True]); a missing float in a list is NaN in pandas.
+PANDAS_CSV_NUMBER_LISTS = pl.selectors.by_dtype(
+    pl.List(pl.Int8), pl.List(pl.Int16), pl.List(pl.Int32), pl.List(pl.Int64),
+    pl.List(pl.UInt8), pl.List(pl.UInt16), pl.List(pl.UInt32), pl.List(pl.UInt64),
+    pl.List(pl.Float64), pl.List(pl.Boolean),
+).map_elements(
+    lambda values: str(
+        [float("nan") if v is None and values.dtype == pl.Float64 else v for v in values]
+    ),
+    return_dtype=pl.String,
+)
+
 # Columns of lists of text as pandas' to_csv writes them: Python's repr of the list.
 PANDAS_CSV_LISTS = pl.format(
     "[{}]",
@@ -210,6 +223,7 @@ pay = (
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
         PANDAS_CSV_LISTS,
+        PANDAS_CSV_NUMBER_LISTS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("keeper_pay.csv")
@@ -237,6 +251,7 @@ cover = cover.with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
         PANDAS_CSV_LISTS,
+        PANDAS_CSV_NUMBER_LISTS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("lock_cover.csv")
@@ -250,6 +265,7 @@ unmanned = rota.filter((pl.col("hours") == 0) & (pl.col("boats") > 0)).collect()
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
         PANDAS_CSV_LISTS,
+        PANDAS_CSV_NUMBER_LISTS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("self_worked.csv")

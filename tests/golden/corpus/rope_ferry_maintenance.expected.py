@@ -63,6 +63,19 @@ PANDAS_CSV_INTS = (
     .otherwise(pl.selectors.integer().cast(pl.String))
 )
 
+# Columns of lists of numbers or True/False as pandas' to_csv writes them: Python's str of the
+# list ([1, 2], [1.5, nan, 1e-05], [True]); a missing float in a list is NaN in pandas.
+PANDAS_CSV_NUMBER_LISTS = pl.selectors.by_dtype(
+    pl.List(pl.Int8), pl.List(pl.Int16), pl.List(pl.Int32), pl.List(pl.Int64),
+    pl.List(pl.UInt8), pl.List(pl.UInt16), pl.List(pl.UInt32), pl.List(pl.UInt64),
+    pl.List(pl.Float64), pl.List(pl.Boolean),
+).map_elements(
+    lambda values: str(
+        [float("nan") if v is None and values.dtype == pl.Float64 else v for v in values]
+    ),
+    return_dtype=pl.String,
+)
+
 # Columns of lists of text as pandas' to_csv writes them: Python's repr of the list.
 PANDAS_CSV_LISTS = pl.format(
     "[{}]",
@@ -206,6 +219,7 @@ per_ferry = (
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
         PANDAS_CSV_LISTS,
+        PANDAS_CSV_NUMBER_LISTS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("ferry_costs.csv")
@@ -237,6 +251,7 @@ usage = usage.with_columns(spent=pl.col("spent").round(2))
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
         PANDAS_CSV_LISTS,
+        PANDAS_CSV_NUMBER_LISTS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("data/part_usage.csv")
@@ -258,6 +273,7 @@ deferred = (
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
         PANDAS_CSV_LISTS,
+        PANDAS_CSV_NUMBER_LISTS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
     )
     .sink_csv("deferred_parts.csv")
