@@ -825,3 +825,56 @@ df.to_csv({str(out)!r}, index=False)
     expected = out.read_text()
     run(convert(source).converted_text)
     assert out.read_text() == expected
+
+
+TRUE_FALSE = """
+import pandas as pd
+df = pd.read_csv("t.csv", parse_dates=["d"])
+"""
+
+
+@pytest.fixture
+def true_false(tmp_path, monkeypatch):
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "t.csv").write_text("id,ok,d\n1,True,2024-01-31 00:00:00\n2,False,\n"
+                                    "3,,2024-02-29 10:30:00\n", encoding="utf-8")
+    return str(tmp_path)  # the data folder: the column types are known, as with --data
+
+
+def test_a_frame_back_from_pandas_after_pop_keeps_its_column_types(true_false):
+    # pandas is the reference: after `df.pop` (kept on pandas) the True/False column is still
+    # True/False, so its text is "True", never Polars' "true", and the datetimes keep pandas' text
+    result = differential(TRUE_FALSE + """
+df.pop("id")
+df["s"] = df["ok"].astype(str)
+df["t"] = df["ok"].map(lambda v: f"<{v}>")
+df["u"] = df["d"].astype(str)
+result = df
+""", data_dir=true_false)
+    assert "from_pandas" in result.converted_text
+
+
+def test_a_function_that_copies_its_frame_first_does_not_change_the_callers(true_false):
+    # `frame = frame.copy()` first: the function's later changes are its copy's, so the
+    # caller's frame stays in Polars with its types
+    result = differential(TRUE_FALSE + """
+def clean(frame):
+    frame = frame.copy()
+    frame["id"] = frame["id"] * 10
+    return frame
+a = clean(df)
+df["t"] = df["ok"].map(lambda v: f"ok:{v}")
+result = df
+""", data_dir=true_false)
+    assert "from_pandas(df)" not in result.converted_text
+
+
+def test_a_function_that_changes_its_frame_before_copying_it_is_still_a_change(true_false):
+    result = convert(TRUE_FALSE + """
+def clean(frame):
+    frame["id"] = frame["id"] * 10
+    frame = frame.copy()
+    return frame
+a = clean(df)
+""")
+    assert any("clean" in s.key for s in result.todos), result.converted_text

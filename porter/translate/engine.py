@@ -1511,6 +1511,14 @@ def _names_read(text: str) -> list[str]:
     return names
 
 
+# porter's column types that pl.from_pandas(df.to_pandas()) gives back as they were (an int
+# column with a missing value comes back float, a date comes back a datetime)
+_ROUND_TRIP_TYPES = frozenset({"bool", "str", "float", "datetime", "duration", "category", "enum"})
+# changes in place that leave the other columns' values as they were
+_KEEPS_OTHER_TYPES = frozenset({"pop", "__delitem__", "insert", "drop", "dropna", "drop_duplicates",
+                                "sort_values", "sort_index"})
+
+
 def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
                   what: str = "", dtype_names: dict[str, cst.BaseExpression] | None = None,
                   period_names: set[str] | None = None) -> Frame | None:
@@ -1532,6 +1540,10 @@ def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
     if what in ("insert", "at", "iat", "attrs", "flags") or what.startswith(("attrs.", "flags.")):
         # the other columns keep their values: category columns are still categories
         dtypes = tuple((c, t) for c, t in frame.dtypes if t in ("category", "enum"))
+    if what in _KEEPS_OTHER_TYPES:
+        # rows or columns taken away: the columns left keep their types, those that come back
+        # from pandas as they went (True/False stays True/False, not text "true")
+        dtypes = tuple((c, t) for c, t in frame.dtypes if t in _ROUND_TRIP_TYPES)
     target = None
     if isinstance(statement, (cst.Assign, cst.AugAssign)):
         target = statement.targets[0].target if isinstance(statement, cst.Assign) \
@@ -1544,7 +1556,7 @@ def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
     if isinstance(key, str) and frame.columns is not None:
         # `df["c"] = ...` / `df.loc[m, "c"] = ...`: one column made or changed
         columns = frame.columns if key in frame.columns else (*frame.columns, key)
-        dtypes = tuple((c, t) for c, t in frame.dtypes if c != key)
+        dtypes = tuple((c, t) for c, t in frame.dtypes if c != key and t in _ROUND_TRIP_TYPES)
     if isinstance(key, str) and isinstance(statement, cst.Assign) \
             and isinstance(target, cst.Subscript) and len(target.slice) == 1 \
             and handover.text_categories(statement.value, (dtype_names or {}).get) is not None:

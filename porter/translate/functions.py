@@ -33,11 +33,35 @@ def discover_functions(module: cst.Module) -> list[LocalFunction]:
             if params.star_arg not in (None, cst.MaybeSentinel.DEFAULT) or params.star_kwarg:
                 continue
             names = tuple(p.name.value for p in (*params.posonly_params, *params.params))
-            changed = changed_in_place(stmt) & set(names)
+            changed = (changed_in_place(stmt) & set(names)) - _rebound_first(stmt)
             changed = {p for p in changed if not _rebound_at_every_call(module, stmt.name.value, names, p)}
             found.append(LocalFunction(stmt.name.value, names, frozenset(), None,
                                        mutated_params=frozenset(changed)))
     return found
+
+
+def _rebound_first(function: cst.FunctionDef) -> set[str]:
+    """Names the function's first statements bind anew (`frame = frame.copy()`) before
+    anything else runs: a change made through them later is not the caller's object's."""
+    rebound: set[str] = set()
+    body = function.body.body if isinstance(function.body, cst.IndentedBlock) else ()
+    for stmt in body:
+        if not isinstance(stmt, cst.SimpleStatementLine):
+            break
+        smalls = list(stmt.body)
+        if len(smalls) == 1 and isinstance(smalls[0], cst.Expr) \
+                and isinstance(smalls[0].value, cst.SimpleString):
+            continue  # the docstring
+        if not all(isinstance(s, cst.Assign) and len(s.targets) == 1
+                   and isinstance(s.targets[0].target, cst.Name) for s in smalls):
+            break
+        for small in smalls:
+            assert isinstance(small, cst.Assign)
+            name = small.targets[0].target.value  # type: ignore[attr-defined]
+            if name in changed_in_place(small.value):
+                return rebound
+            rebound.add(name)
+    return rebound
 
 
 def _rebound_at_every_call(module: cst.Module, function: str, params: tuple[str, ...],
