@@ -200,3 +200,17 @@ d5["w"] = d5["v"] * 2
 labels = d5.index.tolist()
 '''
     differential(source, "df", "f", "d5", "labels")
+
+
+def test_labels_read_many_statements_after_the_filter_are_pandas_labels(tmp_path, monkeypatch):
+    # pandas is the reference: a filter, then a long run of column assignments, then the
+    # labels read (to_csv with its index, df.index, df.loc[label]); porter once looked back
+    # only ten statements and handed over renumbered rows under the TODO
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "d.csv").write_text("st,t\nb,1\na,5\n,9\nb,7\na,2\nb,3\n", encoding="utf-8")
+    steps = "".join(f'df["x{i}"] = df["t"] * {i}\n' for i in range(1, 16))
+    differential('import pandas as pd\ndf = pd.read_csv("d.csv")\n'
+                 'df = df.dropna(subset=["st"])\n' + steps
+                 + 'labels = df.index.tolist()\none = df.loc[3, "t"]\n'
+                 'best = df.groupby("st")["t"].idxmax().tolist()\n',
+                 "labels", "one", "best")

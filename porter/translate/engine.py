@@ -122,8 +122,9 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
         services.functions = updated
     # Then, with the functions known, the frames pandas must make for their row labels: a
     # label read found in one pass can make an earlier statement pandas' in the next, back
-    # along a chain of filters, until no new one is found.
-    for _ in range(10 if services.labels_needed else 0):
+    # along a chain of filters and column assignments, until no new one is found (each pass
+    # finds one more statement or stops, so there are never more passes than lines).
+    for _ in range(module.code.count("\n") + 1 if services.labels_needed else 0):
         labels_before = set(services.labels_needed)
         services.call_sites = {}
         services.consumers, services.frame_parents = {}, {}
