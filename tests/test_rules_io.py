@@ -930,3 +930,25 @@ def test_to_csv_of_lists_from_a_function_returning_arrays_says_so() -> None:
                      'b.to_csv("b.csv", index=False)\n')
     site = next(s for s in result.sites if s.key == "frame.to_csv")
     assert site.confidence <= 0.9 and "[1 2]" in site.message, site
+
+
+@pytest.mark.parametrize("values", [
+    '["2024-01-05T10:00:00+01:00", "2024-01-05T23:30:00-05:00", None]',
+    '["2024-01-05T00:00:00+00:00", "2024-07-06T00:00:00+00:00", None]',
+    '["2024-01-05T10:00:00.5+01:00", "2024-07-06T00:00:00+00:00", None]',
+    '["2024-01-05T10:00:00.123456+01:00", "2024-07-06T00:00:00+00:00", None]',
+])
+def test_to_csv_writes_time_zones_as_pandas_writes_them(values: str, data: Path,
+                                                       monkeypatch: pytest.MonkeyPatch) -> None:
+    # pandas writes the offset (+00:00) and always the time of a datetime with a time zone;
+    # PANDAS_CSV_DATETIMES had dropped the offset
+    source = f"""
+        import pandas as pd
+        c = pd.DataFrame({{"id": [1, 2, 3], "e": {values}}})
+        c["e"] = pd.to_datetime(c["e"], utc=True, format="ISO8601")
+        c["o"] = c["e"].dt.tz_convert("Europe/Oslo")
+        c["naive"] = c["e"].dt.tz_localize(None)
+        c.to_csv("out.csv", index=False)
+        """
+    expected_dir, actual_dir, converted = written_by_both(source, data, monkeypatch)
+    assert (actual_dir / "out.csv").read_text() == (expected_dir / "out.csv").read_text(), converted

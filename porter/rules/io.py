@@ -11,7 +11,8 @@ from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_DURATIONS_CONSTANT,
                                      CSV_INTS_CONSTANT, CSV_LISTS_CONSTANT,
-                                     CSV_NUMBER_LISTS_CONSTANT, DTYPES,
+                                     CSV_NUMBER_LISTS_CONSTANT, CSV_ZONED_DATETIMES_CONSTANT,
+                                     DTYPES,
                                      NA_CONSTANT, NOT_DECOMPRESSED, PANDAS_NA_TOKENS,
                                      POLARS_CSV_COMPRESSION, compression_of, is_number, is_url,
                                      na_value_texts, written_compression)
@@ -364,7 +365,8 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     does: 0.9); columns of lists of text, numbers or True/False as pandas writes str(list)
     (numpy arrays, which pandas writes [1 2], are lists in Polars: 0.9 where the script may
     make them).
-    Caveats: booleans and datetimes are written as pandas writes them (True/False, no `T`);
+    Caveats: booleans and datetimes are written as pandas writes them (True/False, no `T`,
+    the offset of a time zone: +00:00);
     an integer column holding a missing value as floats (2024.0: float64 in pandas), unless
     the script can make pandas' nullable integers, which porter does not tell apart (0.9); a
     missing value alone on its line (one column) as "". With the default index=True on a
@@ -416,6 +418,11 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.confidence = max(ctx.confidence, 0.98)  # every column's type is known and handled
     text = csv_text_columns(frame, ctx)
     kinds = {t for _, t in frame.dtypes}
+    if CSV_DATETIMES_CONSTANT in {c.text for c in text}:
+        # datetimes with a time zone first, with their offset (PANDAS_CSV_DATETIMES' selector
+        # then no longer finds them)
+        frame = derive(frame, frame.code.method("with_columns", emit.atom(CSV_ZONED_DATETIMES_CONSTANT)),
+                       same_rows=True)
     if kinds & {"str", "category"} or frame.columns is None or len(frame.dtypes) != len(frame.columns):
         if not na_rep:
             # pandas writes an empty text as an empty field, as it writes a missing value;

@@ -32,11 +32,27 @@ PANDAS_CSV_DATETIMES = (
 )
 """
 
+# The same for datetime columns with a time zone, applied first (they are text when
+# PANDAS_CSV_DATETIMES runs): pandas writes their offset (+00:00) and always the time.
+CSV_ZONED_DATETIMES_CONSTANT = "PANDAS_CSV_ZONED_DATETIMES"
+CSV_ZONED_DATETIMES_DEFINITION = """\
+# Datetime columns with a time zone as pandas' to_csv writes them: the time always, then the
+# offset (+01:00); no fraction of a second when none has one, milliseconds when they are enough.
+PANDAS_CSV_ZONED_DATETIMES = (
+    pl.when((pl.selectors.datetime(time_zone="*").dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%:z"))
+    .when((pl.selectors.datetime(time_zone="*").dt.microsecond() % 1000 == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.3f%:z"))
+    .otherwise(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.6f%:z"))
+)
+"""
+
 
 def datetime_text(time: Code) -> Code:
     """One datetime column's values as pandas' astype(str) writes them: the same choice as
     PANDAS_CSV_DATETIMES above makes for every datetime column of a write (keep the two in
-    step), decided from the whole column."""
+    step), decided from the whole column. A column with a time zone is not told apart here
+    (its offset is left out), where a write applies PANDAS_CSV_ZONED_DATETIMES first."""
     dt = time.attr("dt")
     midnight = emit.binop(time, "==", dt.method("truncate", "1d")).method("all")
     seconds = emit.binop(dt.method("microsecond"), "==", 0).method("all")

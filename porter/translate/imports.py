@@ -10,6 +10,7 @@ from porter.rules.io_options import (
     CATEGORY_COUNTS_DEFINITION, CATEGORY_COUNTS_FUNCTION,
     CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION, CSV_DURATIONS_CONSTANT, CSV_LISTS_CONSTANT,
     CSV_LISTS_DEFINITION, CSV_NUMBER_LISTS_CONSTANT, CSV_NUMBER_LISTS_DEFINITION,
+    CSV_ZONED_DATETIMES_CONSTANT, CSV_ZONED_DATETIMES_DEFINITION,
     CSV_DURATIONS_DEFINITION, CSV_INTS_CONSTANT, CSV_INTS_DEFINITION,
     DIVIDE_DEFINITION, DIVIDE_FUNCTION,
     NA_CONSTANT, PANDAS_NA_TOKENS, QUANTILE_DEFINITION, QUANTILE_FUNCTION, ROW_DEFINITION,
@@ -90,7 +91,8 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (CSV_NUMBER_LISTS_CONSTANT, CSV_NUMBER_LISTS_DEFINITION),
                                  (CSV_INTS_CONSTANT, CSV_INTS_DEFINITION),
                                  (CSV_DURATIONS_CONSTANT, CSV_DURATIONS_DEFINITION),
-                                 (CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION)):
+                                 (CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION),
+                                 (CSV_ZONED_DATETIMES_CONSTANT, CSV_ZONED_DATETIMES_DEFINITION)):
         if constant in used and not _defines(module, constant):
             body = _insert_after_imports(body, _constant(definition))
     for function, definition in ((DIVIDE_FUNCTION, DIVIDE_DEFINITION),

@@ -11,6 +11,16 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+# Datetime columns with a time zone as pandas' to_csv writes them: the time always, then the
+# offset (+01:00); no fraction of a second when none has one, milliseconds when they are enough.
+PANDAS_CSV_ZONED_DATETIMES = (
+    pl.when((pl.selectors.datetime(time_zone="*").dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%:z"))
+    .when((pl.selectors.datetime(time_zone="*").dt.microsecond() % 1000 == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.3f%:z"))
+    .otherwise(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.6f%:z"))
+)
+
 # Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
 # midnight, no fraction of a second when none has one, milliseconds when they are enough.
 PANDAS_CSV_DATETIMES = (
@@ -103,6 +113,7 @@ shop_stats = (
 )
 (
     shop_stats
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
@@ -185,6 +196,7 @@ first_last = (
 pl.collect_all([
     (
         typical
+        .with_columns(PANDAS_CSV_ZONED_DATETIMES)
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
@@ -196,6 +208,7 @@ pl.collect_all([
     ),
     (
         first_last
+        .with_columns(PANDAS_CSV_ZONED_DATETIMES)
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
@@ -221,6 +234,7 @@ least_waste = (
 )
 (
     least_waste
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,

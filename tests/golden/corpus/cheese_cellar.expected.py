@@ -12,6 +12,16 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+# Datetime columns with a time zone as pandas' to_csv writes them: the time always, then the
+# offset (+01:00); no fraction of a second when none has one, milliseconds when they are enough.
+PANDAS_CSV_ZONED_DATETIMES = (
+    pl.when((pl.selectors.datetime(time_zone="*").dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%:z"))
+    .when((pl.selectors.datetime(time_zone="*").dt.microsecond() % 1000 == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.3f%:z"))
+    .otherwise(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.6f%:z"))
+)
+
 # Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
 # midnight, no fraction of a second when none has one, milliseconds when they are enough.
 PANDAS_CSV_DATETIMES = (
@@ -109,6 +119,7 @@ status = (
 )
 (
     status
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
@@ -162,6 +173,7 @@ caves = (
 )
 (
     caves
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,

@@ -21,6 +21,16 @@ def pandas_div(numerator, divisor):
     return numerator / (numerator.is_null() * 0 + divisor)
 
 
+# Datetime columns with a time zone as pandas' to_csv writes them: the time always, then the
+# offset (+01:00); no fraction of a second when none has one, milliseconds when they are enough.
+PANDAS_CSV_ZONED_DATETIMES = (
+    pl.when((pl.selectors.datetime(time_zone="*").dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%:z"))
+    .when((pl.selectors.datetime(time_zone="*").dt.microsecond() % 1000 == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.3f%:z"))
+    .otherwise(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.6f%:z"))
+)
+
 # Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
 # midnight, no fraction of a second when none has one, milliseconds when they are enough.
 PANDAS_CSV_DATETIMES = (
@@ -161,6 +171,7 @@ unread = (
 )
 (
     unread
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
@@ -228,6 +239,7 @@ per_customer = per_customer.with_columns(value=pl.col("value").round(2))
 per_customer = per_customer.with_columns(metres=pl.col("metres").round(2))
 (
     per_customer
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
@@ -250,6 +262,7 @@ loads = loads.with_columns(kg=pl.col("kg").round(1))
 loads = loads.with_columns(metres=pl.col("metres").round(2))
 (
     loads
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,

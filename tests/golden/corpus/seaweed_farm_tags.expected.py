@@ -12,6 +12,16 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+# Datetime columns with a time zone as pandas' to_csv writes them: the time always, then the
+# offset (+01:00); no fraction of a second when none has one, milliseconds when they are enough.
+PANDAS_CSV_ZONED_DATETIMES = (
+    pl.when((pl.selectors.datetime(time_zone="*").dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%:z"))
+    .when((pl.selectors.datetime(time_zone="*").dt.microsecond() % 1000 == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.3f%:z"))
+    .otherwise(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.6f%:z"))
+)
+
 # Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
 # midnight, no fraction of a second when none has one, milliseconds when they are enough.
 PANDAS_CSV_DATETIMES = (
@@ -144,6 +154,7 @@ per_line = per_line.with_columns(wet_per_m=pl.col("wet_per_m").round(3))
 per_line = per_line.with_columns(dry_kg=pl.col("dry_kg").round(2))
 (
     per_line
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
@@ -171,6 +182,7 @@ weekly = weekly.with_columns(mean_ratio=pl.col("mean_ratio").round(4))
 weekly = weekly.sort(["species", "week"], nulls_last=True, maintain_order=True)
 (
     weekly
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
@@ -190,6 +202,7 @@ unread = (
 )
 (
     unread
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,

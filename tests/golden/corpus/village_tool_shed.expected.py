@@ -22,6 +22,16 @@ def pandas_div(numerator, divisor):
     return numerator / (numerator.is_null() * 0 + divisor)
 
 
+# Datetime columns with a time zone as pandas' to_csv writes them: the time always, then the
+# offset (+01:00); no fraction of a second when none has one, milliseconds when they are enough.
+PANDAS_CSV_ZONED_DATETIMES = (
+    pl.when((pl.selectors.datetime(time_zone="*").dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%:z"))
+    .when((pl.selectors.datetime(time_zone="*").dt.microsecond() % 1000 == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.3f%:z"))
+    .otherwise(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.6f%:z"))
+)
+
 # Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
 # midnight, no fraction of a second when none has one, milliseconds when they are enough.
 PANDAS_CSV_DATETIMES = (
@@ -218,6 +228,7 @@ per_tool = (
 )
 (
     per_tool
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_DATETIMES,
@@ -274,6 +285,7 @@ by_member = by_member.sort(
 pl.collect_all([
     (
         by_member
+        .with_columns(PANDAS_CSV_ZONED_DATETIMES)
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
@@ -287,6 +299,7 @@ pl.collect_all([
         late
         .select("loan_id", "tool", "member", "out_date", "days_out", "lost")
         .sort("loan_id", nulls_last=True, maintain_order=True)
+        .with_columns(PANDAS_CSV_ZONED_DATETIMES)
         .with_columns(
             pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
             PANDAS_CSV_DATETIMES,
