@@ -214,3 +214,21 @@ def test_labels_read_many_statements_after_the_filter_are_pandas_labels(tmp_path
                  + 'labels = df.index.tolist()\none = df.loc[3, "t"]\n'
                  'best = df.groupby("st")["t"].idxmax().tolist()\n',
                  "labels", "one", "best")
+
+
+def test_filtered_frames_in_a_list_or_appended_in_a_loop_keep_pandas_labels(tmp_path, monkeypatch):
+    # pandas is the reference: parts of a frame, filtered inline, concatenated by pandas code
+    # porter does not port (a list in a name, a loop of appends) and written with their labels
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "d.csv").write_text("st,t\nb,1\na,5\n,9\nb,7\na,2\nb,3\n", encoding="utf-8")
+    differential("""
+import pandas as pd
+df = pd.read_csv("d.csv")
+parts = [df[df["st"] == "a"], df[df["st"] == "b"]]
+c = pd.concat(parts)
+frames = []
+for v in ["a", "b"]:
+    frames.append(df[df.st == v])
+d = pd.concat(frames)
+labels = c.index.tolist() + d.index.tolist()
+""", "labels")

@@ -213,9 +213,11 @@ class Evaluator:
             items = [v.const for v in values]  # type: ignore[union-attr]
             return self.opaque(node, items if isinstance(node, cst.List) else tuple(items))
         if len(values) == len(node.elements) and any(is_pandas(v) for v in values):
+            elements = [e.value for e in node.elements if isinstance(e, cst.Element)]
             return Items(Code(self.source(node)), items=tuple(values),
                          brackets="[]" if isinstance(node, cst.List) else "()",
-                         sites=tuple(s for v in values for s in v.sites))
+                         sites=tuple(s for v in values for s in v.sites),
+                         labelled=tuple(self.pandas_throughout(v, e) for v, e in zip(values, elements)))
         return self.generic(node)
 
     _eval_Tuple = _eval_List
@@ -900,7 +902,12 @@ class Evaluator:
         message = ("passed to code porter does not understand: handed over to pandas with "
                    ".collect().to_pandas(); port that code to take a Polars frame")
         frame = value if isinstance(value, Frame) else value.frame if isinstance(value, Column) else None
-        if frame is not None and not frame.labels_intact and not frame.index:
+        whole = self.pandas_throughout(value, node)
+        if whole is not None:
+            # filtered or sorted on the way (`[df[df.k == "a"], ...]`): pandas runs the whole
+            # expression, so the rows keep pandas' labels
+            code = whole
+        elif frame is not None and not frame.labels_intact and not frame.index:
             # after a filter or a sort pandas' labels are the original row numbers; the frame
             # handed over is numbered 0..n-1 again (a known gap: labels are not carried yet)
             message += (". Its row labels are renumbered 0..n-1 (pandas kept the original row "

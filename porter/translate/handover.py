@@ -172,6 +172,11 @@ def to_pandas(value: Value) -> Code:
     if isinstance(value, Indexer):
         return to_pandas(value.frame).attr(value.kind)
     if isinstance(value, Items):
+        if any(code is not None for code in value.labelled):
+            # a filtered frame written inline keeps pandas' labels: pandas runs its filter
+            return _items(value, lambda v: next(
+                (c for i, c in zip(value.items, value.labelled) if i is v and c is not None),
+                to_pandas(v)))
         return _items(value, to_pandas)
     if isinstance(value, Parts):  # str.extract / split(expand=True): pandas computes it again
         return value.pandas

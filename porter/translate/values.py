@@ -229,6 +229,9 @@ class Items(Value):
 
     items: tuple[Value, ...] = field(kw_only=True)
     brackets: str = field(default="[]", kw_only=True)
+    # per item, the pandas code that keeps its row labels when it is handed over (a filtered
+    # frame written inline: pandas runs the filter), or None
+    labelled: tuple[Code | None, ...] = field(default=(), kw_only=True)
 
 
 @dataclass(frozen=True)
