@@ -952,3 +952,22 @@ def test_to_csv_writes_time_zones_as_pandas_writes_them(values: str, data: Path,
         """
     expected_dir, actual_dir, converted = written_by_both(source, data, monkeypatch)
     assert (actual_dir / "out.csv").read_text() == (expected_dir / "out.csv").read_text(), converted
+
+
+def test_to_csv_of_categories_without_an_empty_one(data: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    # a category column becomes an Enum in Polars; one without "" among its categories had
+    # refused the replace of empty texts
+    source = """
+        import pandas as pd
+        df = pd.DataFrame({"k": ["b", "a", None, "b"], "n": [1, 2, 3, 40]})
+        df["k"] = df["k"].astype("category")
+        df["size"] = pd.cut(df["n"], bins=[0, 2, 10], labels=["small", "big"])
+        other = pd.DataFrame({"n": [1, 5]})
+        both = df.merge(other, on="n", how="outer", indicator=True)
+        df.to_csv("out.csv", index=False)
+        both.to_csv("both.csv", index=False)
+        """
+    expected_dir, actual_dir, converted = written_by_both(source, data, monkeypatch)
+    assert "pl.Enum" in converted
+    for name in ("out.csv", "both.csv"):
+        assert (actual_dir / name).read_text() == (expected_dir / name).read_text(), converted

@@ -426,9 +426,10 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     if kinds & {"str", "category"} or frame.columns is None or len(frame.dtypes) != len(frame.columns):
         if not na_rep:
             # pandas writes an empty text as an empty field, as it writes a missing value;
-            # Polars quotes it ("") to tell it from a missing one
+            # Polars quotes it ("") to tell it from a missing one. Categories are written as
+            # their text (an Enum without "" among them would refuse the replace)
             text.append(emit.atom("pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)")
-                        .method("replace", "", None))
+                        .method("cast", emit.atom("pl.String")).method("replace", "", None))
         else:
             ctx.lower(f"na_rep={na_rep!r}: pandas writes an empty text as an empty field, "
                       "Polars' writer as \"\"", 0.9)

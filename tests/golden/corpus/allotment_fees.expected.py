@@ -164,7 +164,9 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
-            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+            .cast(pl.String)
+            .replace("", None),
         )
         .sink_csv("ledger.csv")
     )
@@ -220,7 +222,9 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
-            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+            .cast(pl.String)
+            .replace("", None),
         )
         .sink_csv("section_balances.csv")
     )
@@ -248,7 +252,9 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
-            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+            .cast(pl.String)
+            .replace("", None),
         )
         .sink_csv("in_arrears.csv")
     )

@@ -119,7 +119,9 @@ shop_stats = (
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("shop_stats.csv")
 )
@@ -202,7 +204,9 @@ pl.collect_all([
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
-            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+            .cast(pl.String)
+            .replace("", None),
         )
         .sink_csv("typical_units.csv", lazy=True)
     ),
@@ -214,7 +218,9 @@ pl.collect_all([
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
-            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+            .cast(pl.String)
+            .replace("", None),
         )
         .sink_csv("first_and_last.csv", lazy=True)
     ),
@@ -240,7 +246,9 @@ least_waste = (
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("least_waste.csv")
 )

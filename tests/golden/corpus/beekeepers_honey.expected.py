@@ -146,7 +146,9 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
-            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+            .cast(pl.String)
+            .replace("", None),
         )
         .sink_csv("hive_totals.csv")
     )
@@ -184,7 +186,9 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
-            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+            .cast(pl.String)
+            .replace("", None),
         )
         .sink_csv("apiary_totals.csv")
     )
@@ -234,7 +238,9 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
-            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+            .cast(pl.String)
+            .replace("", None),
         )
         .sink_csv("honey_describe.csv")
     )

@@ -199,7 +199,9 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
-            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+            .cast(pl.String)
+            .replace("", None),
         )
         .sink_csv("toll_by_lock.csv")
     )
@@ -268,7 +270,9 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
-            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+            .cast(pl.String)
+            .replace("", None),
         )
         .sink_csv("owed_by_skipper.csv")
     )

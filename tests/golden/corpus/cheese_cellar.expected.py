@@ -125,7 +125,9 @@ status = (
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("wheel_status.csv")
 )
@@ -179,7 +181,9 @@ caves = (
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("cave_spread.csv")
 )
@@ -199,7 +203,9 @@ by_recipe = by_recipe.with_columns(mean_loss=pl.col("mean_loss").round(2))
     by_recipe
     .with_columns(
         PANDAS_CSV_INTS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("recipe_loss.csv")
 )

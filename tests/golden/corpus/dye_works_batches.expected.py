@@ -106,7 +106,9 @@ water = water.with_columns(
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("water_per_dye.csv")
 )
@@ -120,7 +122,9 @@ flagged = batches.filter(
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("flagged_batches.csv")
 )
@@ -142,7 +146,9 @@ per_shift = (
     per_shift
     .with_columns(
         PANDAS_CSV_INTS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("shift_report.csv")
 )
@@ -162,7 +168,9 @@ intensity = (
     intensity
     .head(10)
     .with_columns(
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("thirstiest_batches.csv")
 )

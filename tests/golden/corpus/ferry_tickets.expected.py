@@ -174,7 +174,9 @@ class_counts = (
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("fare_classes.csv")
 )
@@ -189,7 +191,9 @@ weekend = tickets.filter(pl.col("weekday") >= 5).collect().lazy()
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("weekend_sailings.csv")
 )

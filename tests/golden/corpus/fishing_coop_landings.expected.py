@@ -127,7 +127,9 @@ status = quota_status(landings, quota).collect().lazy()
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("quota_status.csv")
 )
@@ -139,7 +141,9 @@ totals = boat_totals(landings).collect().lazy()
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("boat_totals.csv")
 )

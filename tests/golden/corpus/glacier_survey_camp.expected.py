@@ -159,7 +159,9 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
-            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+            .cast(pl.String)
+            .replace("", None),
         )
         .sink_csv("suspicious_readings.csv")
     )
@@ -216,7 +218,9 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
-            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+            pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+            .cast(pl.String)
+            .replace("", None),
         )
         .sink_csv("stake_melt.csv")
     )

@@ -224,7 +224,9 @@ pay = (
         PANDAS_CSV_INTS,
         PANDAS_CSV_LISTS,
         PANDAS_CSV_NUMBER_LISTS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("keeper_pay.csv")
 )
@@ -252,7 +254,9 @@ cover = cover.with_columns(
         PANDAS_CSV_INTS,
         PANDAS_CSV_LISTS,
         PANDAS_CSV_NUMBER_LISTS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("lock_cover.csv")
 )
@@ -266,7 +270,9 @@ unmanned = rota.filter((pl.col("hours") == 0) & (pl.col("boats") > 0)).collect()
         PANDAS_CSV_INTS,
         PANDAS_CSV_LISTS,
         PANDAS_CSV_NUMBER_LISTS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("self_worked.csv")
 )

@@ -231,7 +231,9 @@ per_ferry = (
         PANDAS_CSV_INTS,
         PANDAS_CSV_LISTS,
         PANDAS_CSV_NUMBER_LISTS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("ferry_costs.csv")
 )
@@ -264,7 +266,9 @@ usage = usage.with_columns(spent=pl.col("spent").round(2))
         PANDAS_CSV_INTS,
         PANDAS_CSV_LISTS,
         PANDAS_CSV_NUMBER_LISTS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("data/part_usage.csv")
 )
@@ -287,7 +291,9 @@ deferred = (
         PANDAS_CSV_INTS,
         PANDAS_CSV_LISTS,
         PANDAS_CSV_NUMBER_LISTS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum).replace("", None),
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
     )
     .sink_csv("deferred_parts.csv")
 )
