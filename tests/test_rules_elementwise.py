@@ -793,3 +793,16 @@ def test_value_functions_polars_could_run_otherwise_stay_on_pandas(source: str) 
     result = differential(VALUES + source + 'result = df\n')
     assert ".map_elements(" not in result.converted_text
     assert any(s.key == "series.apply" for s in result.todos)
+
+
+@pytest.mark.parametrize("expr", [
+    'df["x"].apply(lambda v: round(v, 2))',
+    'df["x"].map(lambda v: f"{round(v, 1)} kg")',
+    'df["x"].apply(lambda v: round(v, 2) * 10 if v > 0 else 0.0)',
+])
+def test_pythons_round_in_a_lambda_rounds_the_exact_binary_value(expr: str) -> None:
+    # pandas is the reference: round(2.675, 2) is 2.67 in Python (the float is 2.67499...),
+    # where scaling by 100 first gives 2.68; 1.115 -> 1.11, 0.125 -> 0.12 (half to even)
+    source = ('import pandas as pd\nimport numpy as np\n'
+              'df = pd.DataFrame({"x": [2.675, 1.115, 0.125, np.nan, -2.675, 0.285, 1.005]})\n')
+    differential(source + f'df["r"] = {expr}\nresult = df\n')

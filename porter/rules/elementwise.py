@@ -347,7 +347,8 @@ def element_cast(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("element.round", "element.abs")
 def element_number(call: PandasCall, ctx: RuleContext) -> Value:
-    """round(x, n) / abs(x) in a lambda -> .round(n) / .abs()."""
+    """round(x, n) / abs(x) in a lambda -> .round(n) / .abs(); Python's round of a float runs
+    on each value (map_elements): it rounds the exact binary value, which no expression does."""
     element = _element(call)
     if call.name == "abs":
         return _value(element, element.code.method("abs"), dtype=element.dtype)
@@ -358,11 +359,13 @@ def element_number(call: PandasCall, ctx: RuleContext) -> Value:
     if not isinstance(digits, int) or digits < 0:
         raise Unsupported("negative digits")
     if element.dtype != "int":
-        # round(0.005, 2) is 0.01: Python rounds the exact binary value; Polars (and pandas'
-        # Series.round) scale by 10**n first (0.5, rounded to even: 0.0)
-        ctx.lower("Python's round() rounds a float's exact binary value, Polars rounds it scaled "
-                  "by 10**n: a value written with a 5 in the next decimal (0.005, 2.675) can "
-                  "round the other way", 0.85)
+        # round(2.675, 2) is 2.67: Python rounds the float's exact binary value
+        # (2.67499999...); Polars (and pandas' Series.round) scale by 10**n first and give
+        # 2.68. Python's own round runs on each value (a missing value stays missing, as
+        # round(nan) is nan)
+        code = element.code.method("map_elements", emit.atom(f"lambda v: round(v, {digits})"),
+                                   return_dtype=emit.atom("pl.Float64"))
+        return _value(element, code, dtype="float")
     return _value(element, element.code.method("round", digits), dtype=element.dtype)
 
 
