@@ -662,3 +662,13 @@ def test_bytes_used_other_than_decoded_stay_pandas() -> None:
     # pandas' bytes have no Polars counterpart here: made again by pandas, and right
     result = differential(ACCENTS + 'result = df["name"].str.encode("ascii", errors="ignore").tolist()\n')
     assert any(s.key == "series.encoded.tolist" for s in result.todos), result.converted_text
+
+
+@pytest.mark.parametrize("method", ["str.upper()", "str.len()", 'str.contains("e")', "str[0]"])
+def test_str_methods_of_a_category_column_read_its_values(method: str) -> None:
+    # pandas is the reference: .str works on a category column's values (Polars' .str only on
+    # text: the converted script crashed)
+    differential('import pandas as pd\n'
+                 'df = pd.DataFrame({"c": ["red", None, "blue", "red", "grün"]})\n'
+                 'df["c"] = df["c"].astype("category")\n'
+                 f'df["r"] = df["c"].{method}\nresult = df\n')

@@ -98,6 +98,8 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
             dtype = "float"
             ctx.lower("floor division is computed as floored true division (float result)", 0.95)
     elif op == "%":
+        if ltype == "str" or isinstance(left, Opaque) and isinstance(left.const, str):
+            raise Unsupported("text formatting with % (\"n=%s\" % v): write it as an f-string")
         code = emit.binop(lcode, "%", rcode)
         if rtype == "float" or isinstance(right, Opaque) and isinstance(right.const, float) \
                 and not right.const.is_integer():
@@ -469,7 +471,16 @@ def np_where(call: PandasCall, ctx: RuleContext) -> Value:
     frame = column.frame
     then_code, other_code = int64_branches(then, other, [_branch(v, ctx, frame) for v in (then, other)])
     test = ctx.expr(cond, frame)
-    if may_hold_nan(cond, unknown=True):
+    kind = value_dtype(cond)
+    if isinstance(cond, Column) and kind in ("int", "float"):
+        # numbers as conditions: numpy takes every number but 0 as true, NaN too
+        test = emit.binop(test, "!=", 0)
+        if kind == "float":
+            test = test.method("fill_null", True)
+    elif isinstance(cond, Column) and kind != "bool":
+        raise Unsupported("a condition whose type porter does not know: numpy takes numbers "
+                          "and text as true or false by their value")
+    elif may_hold_nan(cond, unknown=True):
         # a blank of a True/False column is NaN in pandas, which numpy takes as true (a
         # column of another type fails in pl.when, filled or not)
         test = test.method("fill_null", True)

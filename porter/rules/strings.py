@@ -49,6 +49,9 @@ def text_column(call: PandasCall, ctx: RuleContext) -> Column:
 
 
 def _text(column: Column) -> Code:
+    if column.dtype in ("category", "enum"):
+        # pandas' .str works on a category column's values: Polars' on text only
+        return column.code.method("cast", emit.atom("pl.String")).attr("str")
     return column.code.attr("str")
 
 
