@@ -878,3 +878,40 @@ def clean(frame):
 a = clean(df)
 """)
     assert any("clean" in s.key for s in result.todos), result.converted_text
+
+
+def test_a_try_around_pandas_code_stays_pandas_and_its_frames_come_back(tmp_path, monkeypatch):
+    # pandas is the reference: the first format fails on these dates and the handler parses
+    # them day first; a failed merge validation is caught. In Polars both errors would come
+    # later, where the plan is collected, as Polars' own exceptions: the handlers never ran
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "t.csv").write_text("id,d\n1,05/01/2024\n2,13/01/2024\n", encoding="utf-8")
+    (tmp_path / "r.csv").write_text("id,b\n1,1\n1,2\n", encoding="utf-8")
+    result = differential("""
+import pandas as pd
+try:
+    df = pd.read_csv("t.csv")
+except FileNotFoundError:
+    df = pd.read_csv("other.csv")
+try:
+    df["d"] = pd.to_datetime(df["d"], format="%Y-%m-%d")
+except ValueError:
+    df["d"] = pd.to_datetime(df["d"], format="%d/%m/%Y")
+r = pd.read_csv("r.csv")
+failed = False
+try:
+    m = df.merge(r, on="id", how="left", validate="one_to_one")
+except pd.errors.MergeError:
+    failed = True
+df["m"] = df["d"].dt.month
+result = df
+""", "result", "failed")
+    assert sum(s.key == "frame.try" for s in result.todos) == 3
+    assert "from_pandas(df)" in result.converted_text  # back to Polars after the try
+
+
+def test_a_try_without_pandas_code_is_rewritten_as_usual():
+    result = convert("import pandas as pd\ndf = pd.DataFrame({'a': [1, 2]})\n"
+                     "try:\n    n = int('x')\nexcept ValueError:\n    n = 0\n"
+                     "df['b'] = df['a'] + n\n")
+    assert not any(s.key == "frame.try" for s in result.sites)

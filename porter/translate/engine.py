@@ -250,6 +250,9 @@ class _Walker:
             body, env = self.indented(stmt.body, env, unit, indent)
             return [stmt.with_changes(items=items, body=body)], env
         if isinstance(stmt, cst.Try):
+            kept = self.try_on_pandas(stmt, env)
+            if kept is not None:
+                return kept
             body, env = self.indented(stmt.body, env, unit, indent)
             handlers = []
             for handler in stmt.handlers:
@@ -415,6 +418,53 @@ class _Walker:
                 _after_loop(_merge(widened, after), handed)
         return [stmt.with_changes(**changes)], \
             _after_loop(_merge(env if not before else widened, after), handed)
+
+    def try_on_pandas(self, stmt: cst.Try, env: dict[str, Value]) -> tuple[list[Any], dict[str, Value]] | None:
+        """A `try` whose `except` catches what pandas code in it raises stays pandas code, with
+        the frames it reads handed over first: Polars runs a plan where it is collected, later
+        and outside the `try`, and raises its own exceptions (not ValueError or KeyError), so
+        the handler would never run. None when the statement uses no pandas."""
+        if not stmt.handlers:
+            return None
+        read = _names_read(self.services.code_for(stmt))
+        aliases = {n for n, q in self.facts.names.items() if q == "pandas" or q.startswith("pandas.")}
+        held = [n for n in read if is_pandas(env.get(n)) and not isinstance(env.get(n), PandasValue)]
+        if not held and not any(n in aliases for n in read):
+            return None
+        lines: list[str] = []
+        for name in held:
+            value = env[name]
+            if isinstance(value, Frame):
+                lines += self.hand_over_expressions_of(name, env, stmt)
+                self.note_handed_over(name, value)
+            lines.append(f"{name} = {handover.to_pandas(value).text}")
+            env[name] = PandasValue(emit.atom(name), frame=_after_change(name, value, None)
+                                    if isinstance(value, Frame) else None)
+        for name, values in _try_assignments(stmt).items():
+            reads_pandas = any(n in aliases or is_pandas(env.get(n)) for v in values
+                               for n in _names_read(cst.Module([]).code_for_node(v)))
+            if not reads_pandas and not is_pandas(env.get(name)):
+                continue  # a plain value (a count, a path): nothing pandas about it
+            # a frame every branch reads from a file comes back to Polars after the `try`
+            read_files = all(isinstance(v, cst.Call) and cst.Module([]).code_for_node(v.func)
+                             .split(".")[-1].startswith("read_") for v in values)
+            env[name] = PandasValue(emit.atom(name),
+                                    frame=Frame(emit.atom(name)) if read_files else None)
+        site = SiteDraft("frame.try", "handover", "todo", 0.0,
+                         "a `try` around pandas code stays pandas: Polars would raise its own "
+                         "exceptions, and only where the plan is collected, after the `try`",
+                         *self.services.position(stmt))
+        self.record((site,))
+        before = [cst.parse_statement(line) for line in lines]
+        kept = stmt
+        first = before[0] if before else kept
+        comments = _todo_comments([site], first)
+        if before:
+            before[0] = before[0].with_changes(leading_lines=[*stmt.leading_lines, *comments])
+            kept = stmt.with_changes(leading_lines=())
+        else:
+            kept = stmt.with_changes(leading_lines=[*stmt.leading_lines, *comments])
+        return [*before, kept], env
 
     def frames_changed_by_a_loop(self, stmt: cst.For, env: dict[str, Value]) -> tuple[list[str], SiteDraft | None]:
         """`for frame in [a, b]: frame["c"] = ...` changes a and b: each is handed to pandas in
@@ -1497,6 +1547,27 @@ def _row_counts(tree: ast.AST) -> set[str]:
         if isinstance(node, ast.Name):
             uses[node.id] = uses.get(node.id, 0) + 1
     return {name for name, n in counts.items() if uses.get(name) == n}
+
+
+def _try_assignments(stmt: cst.Try) -> dict[str, list[cst.BaseExpression]]:
+    """The names a `try` statement assigns anywhere in it, with the values assigned."""
+    found: dict[str, list[cst.BaseExpression]] = {}
+
+    class Assigns(cst.CSTVisitor):
+        def visit_Assign(self, node: cst.Assign) -> None:
+            for target in node.targets:
+                if isinstance(target.target, cst.Name):
+                    found.setdefault(target.target.value, []).append(node.value)
+
+        def visit_AugAssign(self, node: cst.AugAssign) -> None:
+            if isinstance(node.target, cst.Name):
+                found.setdefault(node.target.value, []).append(node.value)
+
+        def visit_FunctionDef(self, node: cst.FunctionDef) -> bool:
+            return False
+
+    stmt.visit(Assigns())
+    return found
 
 
 def _names_read(text: str) -> list[str]:
