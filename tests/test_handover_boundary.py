@@ -915,3 +915,20 @@ def test_a_try_without_pandas_code_is_rewritten_as_usual():
                      "try:\n    n = int('x')\nexcept ValueError:\n    n = 0\n"
                      "df['b'] = df['a'] + n\n")
     assert not any(s.key == "frame.try" for s in result.sites)
+
+
+def test_a_mixed_object_result_of_a_hand_over_stays_pandas(tmp_path, monkeypatch):
+    # pandas is the reference: replace("none", 0) on a text column and pd.melt of a float and
+    # a text column make object columns mixing text and numbers, which Polars has no type for
+    # (pl.Series / pl.from_pandas raised on them)
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "t.csv").write_text("site,jan,feb,cnt\nA,3.5,x,3\nB,1.0,,none\nC,2.0,y,\n",
+                                    encoding="utf-8")
+    differential("""
+import pandas as pd
+w = pd.read_csv("t.csv")
+d = pd.melt(w, id_vars="site", value_vars=["jan", "feb"])
+w["cnt"] = w["cnt"].replace("none", 0)
+values = d["value"].tolist()
+counts = w["cnt"].tolist()
+""", "values", "counts", data_dir=str(tmp_path))

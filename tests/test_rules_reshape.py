@@ -251,7 +251,7 @@ def test_melt_of_a_frame_in_pieces_keeps_pandas_order() -> None:
 
 
 @pytest.mark.parametrize("call,reason", [
-    ('df.melt(id_vars="shop", value_vars=["kind", "n"])', "object"),
+    ('df.melt(id_vars="shop", value_vars=["kind", "n"])', "mixed column"),
     ('df.melt(id_vars="shop", value_vars=["n"], ignore_index=False)', "ignore_index"),
     ('df.groupby("shop")[["n", "size"]].sum().melt()', "index"),
 ])

@@ -18,7 +18,7 @@ from porter.rules.groupby import agg_expr, how_name, pivot_sorted
 from porter.rules.io import polars_dtype
 from porter.rules.io_options import DIVIDE_FUNCTION, QUANTILE_FUNCTION
 from porter.translate.context import (
-    PandasCall, RuleContext, Unsupported, check_same_rows, column_names, derived_column,
+    MIXED_COLUMN, PandasCall, RuleContext, Unsupported, check_same_rows, column_names, derived_column,
 )
 from porter.translate.values import Column, Frame, Items, Opaque, PandasValue, Value
 
@@ -415,8 +415,8 @@ def _common_value_dtype(frame: Frame, value_vars: list[str], ctx: RuleContext) -
         return types.pop()
     if types <= set(_NUMBER_TYPES):
         return "float"
-    raise Unsupported(f"value columns of types {sorted(types)}: pandas keeps each value as it is "
-                      "(an object column), Polars casts them to one type")
+    raise Unsupported(f"value columns of types {sorted(types)}: putting them in one column "
+                      f"{MIXED_COLUMN} (each value kept as it is); Polars casts them to one type")
 
 
 # -- get_dummies --------------------------------------------------------------------------------

@@ -9,7 +9,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import (
-    PandasCall, RuleContext, Unsupported, column_names, column_of, derive, derived_column,
+    MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, column_of, derive, derived_column,
 )
 from porter.translate.values import Column, Frame, Opaque, Value
 
@@ -448,7 +448,8 @@ def series_replace(call: PandasCall, ctx: RuleContext) -> Value:
     args = _replace_args(call)
     old, new = _types(args)
     if old and new and not (old | new) <= {int, float} and old != new:
-        raise Unsupported("replacing values with values of another type changes the column type")
+        raise Unsupported("replacing values with values of another type (text with numbers) "
+                          f"{MIXED_COLUMN}")
     code, dtype = column.code, column.dtype
     if _fractional_replacement(args) and dtype != "float":
         # pandas makes an integer column float to hold 2.5; Polars would truncate it to 2

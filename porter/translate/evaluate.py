@@ -23,7 +23,7 @@ from porter.mapping import MappingTable
 from porter.model import MappingEntry, SiteDraft
 from porter.translate import handover
 from porter.translate.rewrite import BINARY_OPS, ChildRewriter, precedence
-from porter.translate.context import PandasCall, RuleContext, Unsupported, derived_column
+from porter.translate.context import MIXED_COLUMN, PandasCall, RuleContext, Unsupported, derived_column
 from porter.translate.values import (
     MISSING, Accessor, BoundMethod, Column, Frame, Grouped, Indexed, Indexer, Items, Module, Opaque,
     PandasValue, Parts, Resampled, Scalar, TimeGrouperSpec, Value, fresh_token, is_pandas,
@@ -875,6 +875,7 @@ class Evaluator:
                               if x.status == "converted" else x for x in sites[:-1]) + (site,)
         if (call.receiver is None and entry is not None and entry.extra.get("returns") == "frame"
                 and not self.services.inside_from_pandas(node)
+                and MIXED_COLUMN not in reason  # an object column of mixed values: no Polars type
                 and not {"chunksize", "iterator"} & set(call.kwargs)):  # those give chunks
             code = emit.pl("from_pandas", fallback).method("lazy")
             return Frame(code, sites=sites)
