@@ -595,8 +595,8 @@ def _python_rows(frame: Frame, function: cst.FunctionDef, reason: str, ctx: Rule
     if absent:
         raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
     read = [column_of(frame, c) for c in found.columns]
-    dtype = {"Float64": "float", "Int64": "int", "String": "str", "Boolean": "bool"}[found.returns]
-    return derived_column(read[0], code, name=None, dtype=dtype, others=read[1:])
+    return derived_column(read[0], code, name=None, dtype=_PORTER_TYPES[found.returns],
+                          others=read[1:])
 
 
 def _python_values(column: Column, function: cst.FunctionDef, reason: str, skip_missing: bool,
@@ -624,8 +624,11 @@ def _python_values(column: Column, function: cst.FunctionDef, reason: str, skip_
     code = _python_result(code, found, ctx)
     ctx.lower(f"runs {name} in Python once per value (map_elements), a missing value passed as "
               f"NaN as pandas passes it", 0.9)
-    dtype = {"Float64": "float", "Int64": "int", "String": "str", "Boolean": "bool"}[found.returns]
-    return derived_column(column, code, name=column.name, dtype=dtype)
+    return derived_column(column, code, name=column.name, dtype=_PORTER_TYPES[found.returns])
+
+
+# the Polars type a Python function's results are given -> porter's name for it
+_PORTER_TYPES = {"Float64": "float", "Int64": "int", "String": "str", "Boolean": "bool"}
 
 
 def _python_result(code: Code, found: PythonFunction, ctx: RuleContext) -> Code:
