@@ -59,13 +59,16 @@ PORTS = [
                  id="strftime"),
     pytest.param('df["t"].dt.strftime("%H:%M:%S.%f")', 'dt.to_string("%H:%M:%S.%6f")',
                  id="strftime microseconds"),
-    # pandas' own pattern picks the values that parse and rewrites them into one layout
+    # pandas' own pattern picks the values that parse: numbers apart are read by chrono as
+    # written, anything else is rewritten into one layout first
     pytest.param('pd.to_datetime(df["raw"], format="%Y-%m-%d %H:%M:%S", errors="coerce")',
-                 '"${Y}/${m}/${d} ${H}:${M}:${S}=").str.to_datetime("%Y/%m/%d %H:%M:%S=", '
-                 'time_unit="us", strict=False)', id="to_datetime errors=coerce"),
+                 '.then(pl.col("raw")).str.to_datetime("%Y-%m-%d %H:%M:%S", time_unit="us", '
+                 'strict=False)', id="to_datetime errors=coerce"),
     pytest.param('pd.to_datetime(df["raw"], format="%d/%m/%Y")',
-                 'pl.col("raw").replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)'
-                 '.str.replace("(?i)^(?:(?P<d>', id="to_datetime format"),
+                 '.otherwise(pl.lit("=")).str.to_datetime("%d/%m/%Y", time_unit="us")',
+                 id="to_datetime format"),
+    pytest.param('pd.to_datetime(df["raw"], format="%Y%m%d", errors="coerce")',
+                 '.str.replace("(?i)^(?:(?P<Y>', id="to_datetime compact format"),
     pytest.param('pd.to_datetime(df["raw"], format="%Y-%m-%d %H:%M:%S.%f")',
                  'str.to_datetime("%Y/%m/%d %H:%M:%S%.f=", time_unit="us")',
                  id="to_datetime fraction"),

@@ -73,12 +73,14 @@ visits = pl.scan_csv(
 )
 visits = visits.with_columns(name=pl.col("name").str.strip_chars().str.to_titlecase())
 visits = visits.with_columns(
-    day=pl.col("day")
-    .str.replace(
-        "(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^",
-        "${Y}/${m}/${d} 0:0:0=",
+    day=pl.when(
+        pl.col("day")
+        .str.contains(
+            "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
+        ),
     )
-    .str.to_datetime("%Y/%m/%d %H:%M:%S=", time_unit="us", strict=False),
+    .then(pl.col("day"))
+    .str.to_datetime("%Y-%m-%d", time_unit="us", strict=False),
 )
 visits = visits.with_columns(weekday=pl.col("day").dt.weekday().cast(pl.Int32) - 1)
 long_names = visits.filter(pl.col("name").str.len_chars().cast(pl.Int64) > 10)

@@ -110,13 +110,20 @@ tickets = tickets.with_columns(
     revenue=pl.col("passengers") * pl.col("fare") + pl.col("vehicle_fee"),
 )
 tickets = tickets.with_columns(
-    sail_date=pl.col("sail_date")
-    .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
-    .str.replace(
-        "(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^",
-        "${Y}/${m}/${d} 0:0:0=",
+    sail_date=pl.when(
+        pl.col("sail_date")
+        .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
+        .str.contains(
+            "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
+        )
+        .fill_null(True),
     )
-    .str.to_datetime("%Y/%m/%d %H:%M:%S=", time_unit="us"),
+    .then(
+        pl.col("sail_date")
+        .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None),
+    )
+    .otherwise(pl.lit("="))
+    .str.to_datetime("%Y-%m-%d", time_unit="us"),
 )
 tickets = tickets.with_columns(
     weekday=pl.col("sail_date").dt.weekday().cast(pl.Int32) - 1,

@@ -88,13 +88,19 @@ def load_readings(path):
         infer_schema_length=None,
     )
     readings = readings.with_columns(
-        read_on=pl.col("read_on")
-        .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
-        .str.replace(
-            "(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^",
-            "${Y}/${m}/${d} 0:0:0=",
+        read_on=pl.when(
+            pl.col("read_on")
+            .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
+            .str.contains(
+                "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
+            )
+            .fill_null(True),
         )
-        .str.to_datetime("%Y/%m/%d %H:%M:%S=", time_unit="us"),
+        .then(
+            pl.col("read_on").replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None),
+        )
+        .otherwise(pl.lit("="))
+        .str.to_datetime("%Y-%m-%d", time_unit="us"),
     )
     readings = readings.with_columns(stake=pl.col("stake").str.to_uppercase())
     readings = readings.with_columns(observer=pl.col("observer").str.to_titlecase())

@@ -120,12 +120,14 @@ log = log.with_columns(gaffer=pl.col("gaffer").str.strip_chars().str.to_titlecas
 log = (
     log
     .with_columns(
-        read_at=pl.col("read_at")
-        .str.replace(
-            "(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]))|^",
-            "${Y}/${m}/${d} ${H}:${M}:0=",
+        read_at=pl.when(
+            pl.col("read_at")
+            .str.contains(
+                "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?:2[0-3]|[0-1][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]))$",
+            ),
         )
-        .str.to_datetime("%Y/%m/%d %H:%M:%S=", time_unit="us", strict=False),
+        .then(pl.col("read_at"))
+        .str.to_datetime("%Y-%m-%d %H:%M", time_unit="us", strict=False),
     )
     .collect()
     .lazy()

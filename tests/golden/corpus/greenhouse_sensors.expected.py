@@ -84,13 +84,20 @@ print(log.select(pl.len()).collect().item())
 
 log = log.with_columns(house=pl.col("house").str.strip_chars().str.to_lowercase())
 log = log.with_columns(
-    reading_time=pl.col("reading_time")
-    .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
-    .str.replace(
-        "(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]))|^",
-        "${Y}/${m}/${d} ${H}:${M}:0=",
+    reading_time=pl.when(
+        pl.col("reading_time")
+        .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
+        .str.contains(
+            "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?:2[0-3]|[0-1][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]))$",
+        )
+        .fill_null(True),
     )
-    .str.to_datetime("%Y/%m/%d %H:%M:%S=", time_unit="us"),
+    .then(
+        pl.col("reading_time")
+        .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None),
+    )
+    .otherwise(pl.lit("="))
+    .str.to_datetime("%Y-%m-%d %H:%M", time_unit="us"),
 )
 log = log.with_columns(day=pl.col("reading_time").dt.date()).collect().lazy()
 

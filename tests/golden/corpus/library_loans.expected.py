@@ -75,30 +75,45 @@ PANDAS_CSV_INTS = (
 def load_loans(path):
     loans = pl.scan_csv(path, null_values=PANDAS_NA_VALUES, infer_schema_length=None)
     loans = loans.with_columns(
-        borrowed_on=pl.col("borrowed_on")
-        .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
-        .str.replace(
-            "(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^",
-            "${Y}/${m}/${d} 0:0:0=",
+        borrowed_on=pl.when(
+            pl.col("borrowed_on")
+            .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
+            .str.contains(
+                "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
+            )
+            .fill_null(True),
         )
-        .str.to_datetime("%Y/%m/%d %H:%M:%S=", time_unit="us"),
+        .then(
+            pl.col("borrowed_on")
+            .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None),
+        )
+        .otherwise(pl.lit("="))
+        .str.to_datetime("%Y-%m-%d", time_unit="us"),
     )
     loans = loans.with_columns(
-        due_on=pl.col("due_on")
-        .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
-        .str.replace(
-            "(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^",
-            "${Y}/${m}/${d} 0:0:0=",
+        due_on=pl.when(
+            pl.col("due_on")
+            .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
+            .str.contains(
+                "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
+            )
+            .fill_null(True),
         )
-        .str.to_datetime("%Y/%m/%d %H:%M:%S=", time_unit="us"),
+        .then(
+            pl.col("due_on").replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None),
+        )
+        .otherwise(pl.lit("="))
+        .str.to_datetime("%Y-%m-%d", time_unit="us"),
     )
     loans = loans.with_columns(
-        returned_on=pl.col("returned_on")
-        .str.replace(
-            "(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^",
-            "${Y}/${m}/${d} 0:0:0=",
+        returned_on=pl.when(
+            pl.col("returned_on")
+            .str.contains(
+                "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
+            ),
         )
-        .str.to_datetime("%Y/%m/%d %H:%M:%S=", time_unit="us", strict=False),
+        .then(pl.col("returned_on"))
+        .str.to_datetime("%Y-%m-%d", time_unit="us", strict=False),
     )
     return loans
 

@@ -125,23 +125,32 @@ loans = loans.with_columns(
     condition=pl.col("condition").str.to_lowercase().fill_null(pl.lit("not checked")),
 )
 loans = loans.with_columns(
-    out_date=pl.col("out_date")
-    .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
-    .str.replace(
-        "(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^",
-        "${Y}/${m}/${d} 0:0:0=",
+    out_date=pl.when(
+        pl.col("out_date")
+        .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
+        .str.contains(
+            "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
+        )
+        .fill_null(True),
     )
-    .str.to_datetime("%Y/%m/%d %H:%M:%S=", time_unit="us"),
+    .then(
+        pl.col("out_date")
+        .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None),
+    )
+    .otherwise(pl.lit("="))
+    .str.to_datetime("%Y-%m-%d", time_unit="us"),
 )
 loans = loans.with_columns(lost=(pl.col("back_date") == "lost").fill_null(False))
 loans = loans.with_columns(broken=(pl.col("condition") == "broken").fill_null(False))
 loans = loans.with_columns(
-    back_date=pl.col("back_date")
-    .str.replace(
-        "(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^",
-        "${Y}/${m}/${d} 0:0:0=",
+    back_date=pl.when(
+        pl.col("back_date")
+        .str.contains(
+            "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
+        ),
     )
-    .str.to_datetime("%Y/%m/%d %H:%M:%S=", time_unit="us", strict=False),
+    .then(pl.col("back_date"))
+    .str.to_datetime("%Y-%m-%d", time_unit="us", strict=False),
 )
 loans = (
     loans
