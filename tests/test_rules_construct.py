@@ -135,3 +135,21 @@ def test_a_dict_of_series_kept_on_pandas_gives_pandas_frame():
     differential("import pandas as pd\ns1 = pd.Series([1, 2, 3], name='kg')\n"
                  "s2 = pd.Series(['x', 'ü', None])\n"
                  "result = pd.DataFrame({'a': s1, 'b': s2, 'c': s2.str.upper()})\n")
+
+
+def test_a_frame_from_a_dict_of_grouped_series_keeps_their_labels(tmp_path, monkeypatch):
+    # pandas is the reference: Series put into a dict in a loop are lined up on their labels
+    # (the weeks), which become the frame's index; from_pandas would have numbered the rows
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "t.csv").write_text("wk,ship,tons\n4,aa,1\n5,aa,2\n5,bb,3\n7,bb,4\n",
+                                    encoding="utf-8")
+    differential("""
+import pandas as pd
+p = pd.read_csv("t.csv")
+res = {}
+for ship in ["aa", "bb"]:
+    sub = p[p["ship"] == ship]
+    res[ship] = sub.groupby("wk")["tons"].sum()
+wide = pd.DataFrame(res).fillna(0)
+result = wide.reset_index()
+""", data_dir=str(tmp_path))

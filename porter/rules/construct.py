@@ -10,6 +10,8 @@ keeps as `object` is a TODO.
 
 from __future__ import annotations
 
+import ast
+
 from dataclasses import replace
 import math
 from typing import Any
@@ -189,6 +191,12 @@ def data_frame(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(data, Opaque) and ".to_pandas()" in data.code.text:
         # values porter already handed to pandas (an earlier run's output): as on that run
         raise ctx.todo("building a frame from another pandas object")
+    if isinstance(data, Opaque) and data.code.text.isidentifier() \
+            and _filled_by_key(ctx.python_module, data.code.text):
+        # `res[key] = <a Series>` in a loop: pandas lines the Series up on their labels, which
+        # become the frame's index; pl.from_pandas would drop them
+        raise ctx.todo("a frame from a dict filled key by key: pandas lines its Series up on "
+                       "their labels (the index), which Polars would drop")
     if isinstance(data, Opaque):
         # the shape is only known at run time (a 2-D array is rows, a dict is columns):
         # pandas builds the frame exactly as before, Polars takes it over once
@@ -202,6 +210,24 @@ def data_frame(call: PandasCall, ctx: RuleContext) -> Value:
             return PandasValue(built)
         return Frame(emit.pl("from_pandas", built).method("lazy"))
     raise ctx.todo("building a frame from another pandas object")
+
+
+def _filled_by_key(module: object, name: str) -> bool:
+    """Whether the script assigns into `name` by key (`name[k] = ...`, other than a list
+    written out) or updates it, so it may hold pandas Series whose labels pandas would line up."""
+    if not isinstance(module, ast.Module):
+        return True  # not known: as if it might
+    for node in ast.walk(module):
+        if isinstance(node, ast.Assign) and any(
+                isinstance(t, ast.Subscript) and isinstance(t.value, ast.Name) and t.value.id == name
+                for t in node.targets) and not isinstance(
+                    node.value, (ast.List, ast.Tuple, ast.Constant, ast.ListComp)):
+            return True  # a value that may be a Series (a list written out has no labels)
+        if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
+                and node.func.attr in ("update", "setdefault") \
+                and isinstance(node.func.value, ast.Name) and node.func.value.id == name:
+            return True
+    return False
 
 
 @rule("pd.Series")
