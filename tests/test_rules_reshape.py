@@ -10,7 +10,7 @@ from __future__ import annotations
 import pytest
 
 from rule_checks import check_ports, check_todo
-from support import column_kinds, convert, differential
+from support import column_kinds, convert, differential, run
 
 # A missing key of each kind (None and NaN), unicode keys, a column key ("r") seen with one
 # index key only, a row ("é") whose other key is missing, NaN values, ties.
@@ -448,3 +448,23 @@ def test_qcut_says_pandas_raises_on_equal_edges() -> None:
 def test_qcut_todo(call: str, reason: str) -> None:
     text = check_todo(QCUT + f"df['band'] = {call}\n", "pd.qcut")
     assert reason in text
+
+
+@pytest.mark.parametrize("table", [
+    'pd.crosstab(v["zone"], v["sp"])',
+    'v.pivot_table(index="zone", columns="sp", values="n", aggfunc="sum", fill_value=0)',
+    'v.groupby(["zone", "sp"])["n"].sum().unstack()',
+])
+def test_a_pivoted_table_handed_to_pandas_keeps_its_columns_name(table, tmp_path, monkeypatch):
+    # pandas is the reference: a pivoted table's columns are named after the key ("sp"),
+    # which .T makes the index's name and .stack() a level's: written out by to_csv
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "t.csv").write_text("zone,sp,n\nN,reed,2\nS,rush,3\nN,rush,4\n", encoding="utf-8")
+    source = f'import pandas as pd\nv = pd.read_csv("t.csv")\nt = {table}\n'
+    for name in ("a", "b"):
+        run(source + 't.T.to_csv("a.csv")\nt.stack().to_csv("b.csv")\n')
+        expected = (tmp_path / f"{name}.csv").read_text()
+        result = convert(source + 't.T.to_csv("a.csv")\nt.stack().to_csv("b.csv")\n',
+                         data_dir=str(tmp_path))
+        run(result.converted_text)
+        assert (tmp_path / f"{name}.csv").read_text() == expected, result.converted_text

@@ -699,7 +699,7 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     # pandas code given the table finds the columns by the key's values (pv[2024])
     int_labels = tuple(keys) if frame.dtype(columns) == "int" else None
     return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False,
-                 int_labels_except=int_labels)
+                 int_labels_except=int_labels, columns_name=columns)
 
 
 @rule("groupby.ngroups")
@@ -811,7 +811,7 @@ def pivot(call: PandasCall, ctx: RuleContext) -> Value:
     code = pivot_sorted(code, columns, [index], values, None, value_dtype in ("int", "bool"))
     int_labels = (index,) if frame.dtype(columns) == "int" else None
     return Frame(code.method("lazy"), columns=None, index=(index,), labels_intact=False,
-                 int_labels_except=int_labels)
+                 int_labels_except=int_labels, columns_name=columns)
 
 
 # -- groupby().apply(f) where f makes one row of aggregates ---------------------------------------

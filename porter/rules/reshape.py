@@ -203,7 +203,8 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
     int_labels = (*row_names, *([margins_name] if margins else [])) \
         if len(cols) == 1 and cols[0].dtype == "int" else None
     return Frame(code.method("lazy"), columns=None, index=tuple(row_names), dtypes=dtypes,
-                 labels_intact=False, int_labels_except=int_labels)
+                 labels_intact=False, int_labels_except=int_labels,
+                 columns_name=col_names[0] if len(col_names) == 1 else None)
 
 
 def _margins(code: Code, key: str, name: str, normalize: str | None) -> Code:
@@ -295,7 +296,7 @@ def unstack(call: PandasCall, ctx: RuleContext) -> Value:
     # pandas code given the table finds the columns by the key's values (t[2024])
     int_labels = tuple(rest) if frame.dtype(on) == "int" else None
     return Frame(code.method("lazy"), columns=None, index=tuple(rest), dtypes=dtypes,
-                 labels_intact=False, int_labels_except=int_labels)
+                 labels_intact=False, int_labels_except=int_labels, columns_name=on)
 
 
 # -- melt ---------------------------------------------------------------------------------------

@@ -99,6 +99,8 @@ def to_pandas(value: Value) -> Code:
         code = _as_pandas_made_them(code, value.dtypes, value.columns)
         if value.index:
             code = _labels(code, value)
+            if value.columns_name is not None:
+                code = code.method("rename_axis", columns=value.columns_name)
         labels = [c for c in value.number_labels if c not in value.index
                   and (value.columns is None or c in value.columns)]
         if labels:  # pandas' own labels 0, 1, … are integers

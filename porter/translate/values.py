@@ -58,6 +58,9 @@ class Frame(Value):
     labels_intact: bool = field(default=True, kw_only=True)
     binding: int | None = field(default=None, kw_only=True)  # the assignment that named it
     index_unnamed: bool = field(default=False, kw_only=True)  # pandas' index has no name
+    # the name pandas gives the columns of a pivoted table (pivot_table(columns="sp"): "sp"),
+    # which .T, .stack() and print show
+    columns_name: str | None = field(default=None, kw_only=True)
     # columns pandas labels with the integers 0, 1, … (Polars names them "0", "1", …)
     number_labels: tuple[str, ...] = field(default=(), kw_only=True)
     # columns pandas labels with a (column, function) pair of MultiIndex columns, flattened
