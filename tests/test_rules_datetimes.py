@@ -951,3 +951,38 @@ df["d_iso"] = pd.to_datetime(df["iso"], format="%Y-%m-%d", errors="coerce")
 '''
     result = differential(source, "df")
     assert "TODO" not in result.converted_text
+
+
+DURATION_COLUMNS = '''
+import pandas as pd
+t = pd.read_csv("t.csv", parse_dates=["d", "e"])
+t["dur"] = t["e"] - t["d"]
+'''
+
+
+@pytest.mark.parametrize("body, names", [
+    ('t["took"] = (t["e"] - t["d"]).astype(str)\nt["msg"] = "took " + t["dur"].astype(str)\n', "t"),
+    ('t["half"] = t["dur"] / 2\nt["twice"] = t["dur"] * 2\n', "t"),
+    ('t["share"] = t["dur"] / t["dur"].sum()\n', "t"),
+    ('g = t.groupby("k").agg(total=("dur", "sum"), n=("dur", "count")).reset_index()\n'
+     'g["avg"] = g["total"] / g["n"]\n', "g"),
+    ('total = str(t["dur"].sum())\nlongest = str(t["dur"].max())\nmean = str(t["dur"].mean())\n',
+     "total longest mean"),
+])
+def test_durations_match_pandas(body, names, tmp_path, monkeypatch):
+    # pandas is the reference: a difference of two date columns is a duration column; its text
+    # is pandas' ("0 days 02:30:00", "-1 days +23:15:00"), it divides by numbers and by
+    # durations (value by value, as numpy does), and its sum prints as a Timedelta
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "t.csv").write_text(
+        "k,d,e\na,2024-01-05 08:00,2024-01-05 10:30\nb,2024-02-07 00:00,2024-02-08 00:00\n"
+        "a,2024-02-07 00:00,2024-02-06 23:15\nb,2024-02-09 00:00,\n", encoding="utf-8")
+    differential(DURATION_COLUMNS + body, *names.split(), data_dir=str(tmp_path))
+
+
+def test_the_std_of_durations_is_a_todo(tmp_path, monkeypatch):
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "t.csv").write_text("d,e\n2024-01-05 08:00,2024-01-05 10:30\n", encoding="utf-8")
+    result = convert(DURATION_COLUMNS.replace('"k,', '"') + 'spread = t["dur"].std()\n',
+                     data_dir=str(tmp_path))
+    assert any(s.key == "series.std" for s in result.todos)

@@ -15,7 +15,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.io import polars_dtype
-from porter.rules.io_options import datetime_text
+from porter.rules.io_options import datetime_text, duration_text
 from porter.rules.ops import int64_lit
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
@@ -796,6 +796,9 @@ def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, st
     if kind == "str" and column.dtype == "datetime":
         # "2024-01-31" when every time is midnight, as pandas writes the column
         return datetime_text(code), "str"
+    if kind == "str" and column.dtype == "duration":
+        # "0 days 02:30:00" (Polars casts no duration to text)
+        return duration_text(code), "str"
     if kind == "bool":
         if column.dtype == "str":
             return emit.binop(code, "!=", "").method("fill_null", True), "bool"

@@ -865,13 +865,13 @@ def timedelta_arithmetic(call: PandasCall, ctx: RuleContext, column: Column) -> 
     left, right = call.receiver, call.args[0]
     assert left is not None
     op = call.name
-    if column.dtype not in (None, "datetime"):
+    if column.dtype not in (None, "datetime", "duration"):
         raise ctx.todo(f"a Timedelta with a {column.dtype} column")
     lcode, rcode = ctx.expr(left, column.frame), ctx.expr(right, column.frame)
     others = [left, right]
     if op in ("+", "-"):
         # datetimes and durations both: NaT stays missing (null), the unit stays microseconds
-        dtype = "datetime" if column.dtype == "datetime" else None
+        dtype = column.dtype if column.dtype in ("datetime", "duration") else None
         return derived_column(column, emit.binop(lcode, op, rcode), dtype=dtype, others=others)
     if column.dtype == "datetime":
         raise ctx.todo(f"a datetime column {op} a Timedelta (pandas refuses it)")
@@ -898,7 +898,7 @@ def days(call: PandasCall, ctx: RuleContext) -> Value:
     microsecond first, which changes the day only just below a negative whole day.
     """
     column = accessor_column(call)
-    if column.dtype is not None:
+    if column.dtype not in (None, "duration"):
         raise ctx.todo(f"a {column.dtype} column has no .dt.days in pandas")
     code = emit.binop(_dt(column).method("total_microseconds"), "//", emit.atom("86_400_000_000"))
     return _result(column, code, "int")
@@ -917,7 +917,7 @@ def total_seconds(call: PandasCall, ctx: RuleContext) -> Value:
     """
     column = accessor_column(call)
     ctx.reject_unknown(call)
-    if column.dtype is not None:
+    if column.dtype not in (None, "duration"):
         raise ctx.todo(f"a {column.dtype} column has no .dt.total_seconds() in pandas")
     # us // 10**6 + us % 10**6 / (us * 0 + 10**6); `us` is named once (Expr.pipe calls the
     # lambda while the query is built) rather than written out three times

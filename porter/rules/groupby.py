@@ -173,11 +173,15 @@ def agg_dtype(how: str, dtype: str | None) -> str | None:
     if how in COUNTS:
         return "int"
     if how in ("mean", "median", "std", "var"):
+        if dtype == "duration" and how in ("mean", "median"):
+            return "duration"
         return "float" if dtype in ("int", "float", "bool") else None
     if how in ("sum", "builtin_sum"):
-        return {"bool": "int", "int": "int", "float": "float", "str": "str"}.get(dtype or "")
+        return {"bool": "int", "int": "int", "float": "float", "str": "str",
+                "duration": "duration"}.get(dtype or "")
     if how in ("min", "max", "first", "last", "builtin_min", "builtin_max"):
-        return dtype if dtype in ("int", "float", "str", "bool", "datetime", "date") else None
+        return dtype if dtype in ("int", "float", "str", "bool", "datetime", "date", "duration") \
+            else None
     return None
 
 
@@ -398,6 +402,16 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("skipna=False")
     how = call.name
     code = ctx.bool_expr(column, column.frame) if column.dtype == "bool" else column.code
+    if column.dtype == "duration" and how in ("std", "var"):
+        raise Unsupported(f"the {how} of durations: Polars has none (pandas gives a Timedelta)")
+    if column.dtype == "duration" and how in ("sum", "mean", "median", "min", "max"):
+        # pandas' value is a Timedelta ("1 days 01:45:00"), which Polars' to_pandas makes; a
+        # Python timedelta prints "1 day, 1:45:00"
+        scalar = scalar_of(column, code.method(how))
+        value = column.frame.code.method("select", code.method(how)).method("collect") \
+            .method("to_series").method("to_pandas").index(0)
+        assert scalar.agg is not None
+        return replace(scalar, code=value, agg=replace(scalar.agg, dtype="duration"))
     if how in ("std", "var"):
         expr = code.method(how, ddof=call.const("ddof", None, 1))
     elif how in ("count", "nunique"):

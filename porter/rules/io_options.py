@@ -97,6 +97,16 @@ PANDAS_CSV_DURATIONS = (
 )
 """
 
+def duration_text(duration: Code) -> Code:
+    """One duration column's values as pandas' astype(str) writes them: the text
+    PANDAS_CSV_DURATIONS writes for every duration column of a write ("1 days" when every
+    value is whole days, else "0 days 02:30:00"), decided from the whole column."""
+    body = CSV_DURATIONS_DEFINITION.split("PANDAS_CSV_DURATIONS = ", 1)[1].strip()
+    column = duration.text if duration.prec >= emit.ATOM and "\n" not in duration.text \
+        else f"({duration.text})"
+    return Code(body.replace("pl.selectors.duration()", column))
+
+
 # An expression, defined once at the top of a converted script, that writes every integer
 # column the way pandas' to_csv does: pandas holds an integer column that has a missing value
 # as floats, and writes 2024.0 (decided per column from the data).

@@ -73,6 +73,19 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
     dtype: str | None = None
     if op == "+" and ltype == rtype == "bool":
         return derived_column(column, emit.binop(lcode, "|", rcode), dtype="bool", others=[left, right])
+    if ltype == "duration" and op in ("/", "*") or rtype == "duration" and op == "*":
+        # durations scaled by numbers stay durations; a duration over a duration is a float
+        # (NaN for 0 / 0, missing in pandas); pandas_div and fill_nan take numbers only
+        code = emit.binop(lcode, op, rcode)
+        over = op == "/" and rtype != "duration" and rtype not in NUMERIC
+        if op == "/" and not over and rtype == "duration":
+            # divided value by value (Polars multiplies by the reciprocal of one divisor, a
+            # binary digit off numpy's quotient)
+            code = emit.binop(lcode, "/", emit.binop(emit.binop(lcode, "*", 0), "+", rcode)) \
+                .method("fill_nan", None)
+        return derived_column(column, code, others=[left, right],
+                              dtype="float" if op == "/" and rtype == "duration" else
+                              None if over else "duration", name=_result_name(left, right))
     if op == "/":
         # a NaN an operand made missing stays NaN through + - * / and is made missing by the
         # outermost operation instead: one fill_nan for a chain of arithmetic
@@ -130,6 +143,8 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
             dtype = "float" if "float" in (ltype, rtype) else "int"
         elif op == "+" and "str" in (ltype, rtype):
             dtype = "str"
+        elif op == "-" and ltype == rtype == "datetime" or op in ("+", "-") and ltype == rtype == "duration":
+            dtype = "duration"
         if op == "**":
             code = _power(left, right, lcode, rcode, ctx).method("fill_nan", None)
             ctx.lower("a negative base to a fractional power is NaN in both (made missing here)", 0.98)

@@ -303,6 +303,8 @@ def value_dtype(value: Value) -> str | None:
         return value.dtype
     if isinstance(value, Opaque) and value.is_const:
         return PYTHON_DTYPES.get(type(value.const))
+    if isinstance(value, Scalar) and value.agg is not None and value.agg.dtype == "duration":
+        return "duration"  # a sum of durations (arithmetic takes it as one)
     return None
 
 
