@@ -932,3 +932,19 @@ w["cnt"] = w["cnt"].replace("none", 0)
 values = d["value"].tolist()
 counts = w["cnt"].tolist()
 """, "values", "counts", data_dir=str(tmp_path))
+
+
+def test_a_try_kept_on_pandas_reads_the_labels_a_filter_left(tmp_path, monkeypatch):
+    # pandas is the reference: after the filter the rows keep their labels (0, 2); the code in
+    # the try reads label 2, which exists in pandas (a renumbered frame raised KeyError there)
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "d.csv").write_text("lot,kg\nA,1\nB,-1\nC,3\n", encoding="utf-8")
+    differential("""
+import pandas as pd
+df = pd.read_csv("d.csv")
+sub = df[df["kg"] > 0]
+try:
+    picked = sub.loc[2, "lot"]
+except KeyError:
+    picked = "none"
+""", "picked", data_dir=str(tmp_path))

@@ -806,3 +806,42 @@ def test_pythons_round_in_a_lambda_rounds_the_exact_binary_value(expr: str) -> N
     source = ('import pandas as pd\nimport numpy as np\n'
               'df = pd.DataFrame({"x": [2.675, 1.115, 0.125, np.nan, -2.675, 0.285, 1.005]})\n')
     differential(source + f'df["r"] = {expr}\nresult = df\n')
+
+
+@pytest.mark.parametrize("expr", [
+    'df.apply(lambda r: round(r["a"] * r["b"], 2), axis=1)',
+    'df.apply(lambda r: r["n"] // r["m"], axis=1)',
+    'df.apply(lambda r: r["n"] % r["m"], axis=1)',
+])
+def test_numpy_rules_in_a_row_of_numbers_only_stay_on_pandas(expr: str) -> None:
+    # pandas is the reference: a row of numbers only is a Series of numpy values, whose
+    # round() is numpy's (0.015 -> 0.02, Python's round gives 0.01) and whose integer // and %
+    # by zero give 0
+    source = ('import pandas as pd\n'
+              'df = pd.DataFrame({"a": [0.015, 0.025, 0.165, 2.675], "b": [1.0, 1.0, 1.0, 1.0]})\n'
+              'df["n"] = [7, 5, -7, 3]\ndf["m"] = [2, 0, 2, 1]\n')
+    result = differential(source + f'df["r"] = {expr}\nresult = df\n')
+    assert any(s.key == "frame.apply" for s in result.todos)
+
+
+def test_a_row_function_reading_a_list_a_helper_changes_stays_on_pandas(tmp_path, monkeypatch):
+    # the list is changed after the apply by a function it is given: pandas ran the row
+    # function before, Polars would run it when the plan is collected, after the change
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "d.csv").write_text("reed,kg,note\nA,1.5,x\nB,2.0,y\nC,,z\n", encoding="utf-8")
+    result = differential("""
+import pandas as pd
+HEAVY = ["x"]
+def grade(row):
+    for n in ["note"]:
+        if row[n] in HEAVY:
+            return "heavy"
+    return "light"
+def add_note(notes, key):
+    notes.append(key)
+df = pd.read_csv("d.csv")
+out = df.assign(grade=df.apply(grade, axis=1))
+add_note(HEAVY, "y")
+result = out
+""", data_dir=str(tmp_path))
+    assert ".map_elements(" not in result.converted_text

@@ -143,9 +143,24 @@ def _root(node: ast.AST) -> str | None:
 
 
 def _changed_in_place(module: ast.Module) -> set[str]:
-    """Names whose object the script may change in place, or alias under another name."""
+    """Names whose object the script may change in place, or alias under another name: a
+    name given to a function (`add_note(HEAVY, "y")`, `random.shuffle(HEAVY)`) may be changed
+    by it, unless the function is a builtin that changes nothing or a method of another
+    object (`df["c"].isin(HEAVY)`)."""
     found: set[str] = set()
+    modules = {(alias.asname or alias.name).split(".")[0] for node in ast.walk(module)
+               if isinstance(node, (ast.Import, ast.ImportFrom)) for alias in node.names}
     for node in ast.walk(module):
+        if isinstance(node, ast.Call):
+            func = node.func
+            safe = isinstance(func, ast.Name) and func.id in SAFE_CALLS | {"print"} or \
+                isinstance(func, ast.Attribute) and _root(func) not in modules \
+                and func.attr not in _MUTATING
+            if not safe:
+                for arg in [*node.args, *(k.value for k in node.keywords)]:
+                    for name in ast.walk(arg):
+                        if isinstance(name, ast.Name) and isinstance(name.ctx, ast.Load):
+                            found.add(name.id)
         if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
                 and node.func.attr in _MUTATING:
             root = _root(node.func.value)
@@ -154,8 +169,9 @@ def _changed_in_place(module: ast.Module) -> set[str]:
         targets: list[ast.AST] = []
         if isinstance(node, ast.Assign):
             targets = list(node.targets)
-            if isinstance(node.value, ast.Name):
-                found.add(node.value.id)  # an alias: a change through it changes both
+            if isinstance(node.value, (ast.Name, ast.List, ast.Tuple, ast.Dict, ast.Set)):
+                # an alias, or a container holding the object: a change through it changes both
+                found |= {n.id for n in ast.walk(node.value) if isinstance(n, ast.Name)}
         elif isinstance(node, (ast.AugAssign, ast.AnnAssign)):
             targets = [node.target]
         elif isinstance(node, ast.Delete):

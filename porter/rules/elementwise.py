@@ -538,6 +538,15 @@ def frame_apply(call: PandasCall, ctx: RuleContext) -> Value:
     if frame.columns is None or len(frame.dtypes) != len(frame.columns):
         ctx.lower("pandas passes a row of numbers only as floats; the column types are not all "
                   "known, so int columns are taken to reach the function as ints", 0.95)
+    if all_numbers and _numpy_sensitive(body):
+        # a row of numbers is a Series of numpy values: round() is numpy's (0.015 -> 0.02),
+        # an int row divides by zero to 0 with // and %, where Python raises
+        raise Unsupported("round(), // or % of a row of numbers only, which pandas passes as "
+                          "numpy values")
+    if not all_numbers and (frame.columns is None or len(frame.dtypes) != len(frame.columns)) \
+            and _numpy_sensitive(body):
+        ctx.lower("round(), // and % follow numpy's rules where the row holds numbers only "
+                  "(the column types are not all known)", 0.9)
     bindings: dict[str, Value] = {}
     for name, column in fields.items():
         value = replace(column_of(frame, column), element=True)
@@ -640,6 +649,24 @@ def _python_result(code: Code, found: PythonFunction, ctx: RuleContext) -> Code:
         ctx.lower(f"{found.name} may return None: where it does for every value, pandas makes an "
                   f"object column of None", 0.9)
     return code
+
+
+def _numpy_sensitive(node: cst.CSTNode) -> bool:
+    """Whether the expression rounds, floor-divides or takes a remainder: on numpy values
+    (a row of numbers only) these follow numpy's rules, not Python's."""
+    found = []
+
+    class Find(cst.CSTVisitor):
+        def visit_Call(self, n: cst.Call) -> None:
+            if isinstance(n.func, cst.Name) and n.func.value == "round":
+                found.append(n)
+
+        def visit_BinaryOperation(self, n: cst.BinaryOperation) -> None:
+            if isinstance(n.operator, (cst.FloorDivide, cst.Modulo)):
+                found.append(n)
+
+    node.visit(Find())
+    return bool(found)
 
 
 class _RowFields(cst.CSTTransformer):

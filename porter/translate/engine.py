@@ -435,6 +435,10 @@ class _Walker:
         for name in held:
             value = env[name]
             if isinstance(value, Frame):
+                if not value.labels_intact and not value.index and value.binding is not None:
+                    # the code in the `try` may read the labels a filter left: the next pass
+                    # has pandas make the frame where it is named
+                    self.services.labels_needed.add(value.binding)
                 lines += self.hand_over_expressions_of(name, env, stmt)
                 self.note_handed_over(name, value)
             lines.append(f"{name} = {handover.to_pandas(value).text}")
