@@ -77,7 +77,7 @@ PORTS = [
     pytest.param('df = pd.read_csv("titled.csv", skiprows=2)', "skip_rows=2", id="skiprows count"),
     pytest.param('df = pd.read_csv("produce.csv", sep=";")', 'separator=";"', id="sep"),
     pytest.param('df = pd.read_csv("produce.csv", parse_dates=["picked"])',
-                 'pl.col("picked").str.to_datetime(time_unit="us")', id="parse_dates"),
+                 'pandas_to_datetime(pl.col("picked"), coerce=False)', id="parse_dates"),
     pytest.param('df = pd.read_parquet("produce.parquet")',
                  'pl.scan_parquet("produce.parquet").with_columns(pl.col(pl.Float32, pl.Float64).fill_nan(None))',
                  id="read_parquet turns stored NaN into missing"),
@@ -197,16 +197,18 @@ def test_read_csv_repeated_header_with_data_is_a_todo(data: Path) -> None:
     assert "# TODO(porter): pd.read_csv" in result.converted_text
 
 
-def test_read_csv_parse_dates_lowers_confidence_for_slashed_dates(data: Path) -> None:
-    # pandas reads 05/03/2024 as May 3rd, Polars' format guess as March 5th: the rewrite
-    # cannot be trusted for such files, and the site says so.
-    (data / "dates.csv").write_text("d,v\n05/03/2024,1\n06/04/2024,2\n", encoding="utf-8")
-    source = 'import pandas as pd\nresult = pd.read_csv("dates.csv", parse_dates=["d"])\n'
-    site = next(s for s in convert(source).sites if s.key == "pd.read_csv")
-    assert site.confidence <= 0.85 and "day/month" in site.message
-    expected = run(source)["result"]
-    actual = run(convert(source).converted_text)["result"].collect()
-    assert expected["d"].dt.month.tolist() != actual["d"].dt.month().to_list()  # the known gap
+def test_read_csv_parse_dates_follows_pandas_guess_for_slashed_dates(data: Path) -> None:
+    # pandas is the reference: it reads 05/03/2024 as May 3rd (month first, guessed from the
+    # first value) and 13/01/2024 day first; Polars' own guess read March 5th. With --data
+    # porter makes pandas' guess from the sample and writes the format; without, the script
+    # makes it at run time (pandas_to_datetime)
+    for rows in ("05/03/2024,1\n06/04/2024,2\n", "13/01/2024,1\n06/04/2024,2\n"):
+        (data / "dates.csv").write_text("d,v\n" + rows, encoding="utf-8")
+        source = 'import pandas as pd\nresult = pd.read_csv("dates.csv", parse_dates=["d"])\n'
+        for options in ({}, {"data_dir": str(data)}):
+            expected = run(source)["result"]
+            actual = run(convert(source, **options).converted_text)["result"].collect()
+            assert expected["d"].tolist() == actual["d"].to_list(), (rows, options)
 
 
 def test_read_parquet_nan_and_none(data: Path) -> None:

@@ -44,6 +44,9 @@ class FileSchema(dict[str, str]):
     # reads numbers, Polars text; the scan reads them as text and the read casts them to the
     # Polars dtype (as code) given here, after stripping the spaces
     padded: dict[str, str] | None = None
+    # each text column's first value that is not missing or one of pandas' texts for NaT:
+    # pandas guesses a date format from it (read_csv(parse_dates=...))
+    first_texts: dict[str, str] | None = None
 
 
 def polars_code(dtype: pl.DataType) -> str | None:
@@ -123,7 +126,30 @@ class SchemaReader:
             if padded:
                 found.padded = {name: polars_code(dtype) for name, dtype in padded.items()}  # type: ignore[misc]
             found.blank_lines, found.empty_rows = _blank_lines(file, scan_kwargs(options))
+            found.first_texts = _first_texts(file, schema, options)
         return found
+
+
+_NOT_FIRST = {"", "NaT", "nat", "NAT", "nan", "NaN", "NAN", "now", "today"}
+
+
+def _first_texts(file: Path, schema: Any, options: dict[str, Any]) -> dict[str, str]:
+    """The first value of each text column that pandas would guess a date format from."""
+    texts = [name for name, dtype in schema.items() if dtype == pl.String]
+    if not texts:
+        return {}
+    try:
+        kwargs = {**scan_kwargs(options), "infer_schema_length": 0}  # all text, no inference
+        kwargs.pop("schema_overrides", None)
+        head = pl.scan_csv(file, **kwargs).select(texts).head(1000).collect()
+    except (pl.exceptions.PolarsError, OSError, ValueError):
+        return {}
+    found = {}
+    for name in texts:
+        values = [v for v in head[name].to_list() if v is not None and v.strip() not in _NOT_FIRST]
+        if values:
+            found[name] = values[0]
+    return found
 
 
 def _missing_ints_as_floats(file: Path, schema: Any, options: dict[str, Any]) -> dict[str, Any]:

@@ -542,6 +542,24 @@ def _guess_definition() -> str:
     ).replace("in FORMATS", "in [\n" + "".join(rows) + "        ]")
 
 
+def formatted_parse(column: Code, fmt: str, port: Strptime, *, coerce: bool) -> Code:
+    """pd.to_datetime(column, format=fmt) of a text column, `port` being strptime_port(fmt):
+    the values pandas' pattern matches parse, the others are missing (coerce) or an error."""
+    options: dict[str, object] = {"strict": False} if coerce else {}
+    source = column
+    if not coerce:  # pandas' texts for NaT are missing, not an error
+        source = source.method("replace", NAT_TEXTS, None)
+    if port.match is not None:
+        # the values pandas' pattern matches are read by chrono with the format as written;
+        # any other value is missing (coerce) or an unreadable text (raise)
+        matched = source.attr("str").method("contains", port.match)
+        kept = emit.when(matched, source) if coerce else emit.when(
+            matched.method("fill_null", True), source, emit.pl("lit", "="))
+        return kept.attr("str").method("to_datetime", fmt, time_unit="us", **options)
+    return source.attr("str").method("replace", port.pattern, port.text) \
+        .attr("str").method("to_datetime", port.chrono, time_unit="us", **options)
+
+
 def guessed_parse(column: Code, *, coerce: bool) -> Code:
     """pd.to_datetime(column) without format=: the format pandas guesses from the first value,
     among GUESSED_FORMATS, applied to every value as an explicit format is."""
@@ -640,19 +658,7 @@ def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
             # "2024 0105" for %Y%m%d, " 1" for %m); each value it matches is rewritten into
             # one fixed layout Polars reads, with pandas' 1900-01-01 for the parts the format
             # leaves out
-            source = column.code
-            if errors == "raise":  # pandas' texts for NaT are missing, not an error
-                source = source.method("replace", NAT_TEXTS, None)
-            if port.match is not None:
-                # the values pandas' pattern matches are read by chrono with the format as
-                # written; any other value is missing (coerce) or an unreadable text (raise)
-                matched = source.attr("str").method("contains", port.match)
-                kept = emit.when(matched, source) if errors == "coerce" else emit.when(
-                    matched.method("fill_null", True), source, emit.pl("lit", "="))
-                code = kept.attr("str").method("to_datetime", fmt, time_unit="us", **options)
-            else:
-                code = source.attr("str").method("replace", port.pattern, port.text) \
-                    .attr("str").method("to_datetime", port.chrono, time_unit="us", **options)
+            code = formatted_parse(column.code, fmt, port, coerce=errors == "coerce")
             if "%f" in fmt:
                 ctx.lower("%f: Polars keeps microseconds where pandas keeps nanoseconds", 0.9)
         else:

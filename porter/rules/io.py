@@ -17,6 +17,7 @@ from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_DURATIONS_CONST
                                      POLARS_CSV_COMPRESSION, compression_of, is_number, is_url,
                                      na_value_texts, written_compression)
 from porter.analysis.schema import PADDING
+from porter.rules.datetimes import GUESS_REASON, Strptime, formatted_parse, guessed_parse, strptime_port
 from porter.rules.strings import LIST_STR, list_repr
 from porter.translate import handover
 from porter.translate.context import PandasCall, RuleContext, Unsupported, derive, select_columns
@@ -61,8 +62,10 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     Caveats: index_col, header/names, converters, encodings other than UTF-8, a list of
     skipped rows and keep_default_na=False are TODOs; na_values per column needs --data (or a
     dtype= for those columns). With nrows, Polars still infers types from the whole file (0.9).
-    parse_dates lets Polars guess the format, and it reads 05/03/2024 day first where pandas
-    reads it month first (0.85). An empty header is named "Unnamed: n" only when --data shows
+    parse_dates follows pandas' guess of one format from the first value (05/03/2024 month
+    first): with --data made at convert time from the sample and written out (0.9), else made
+    at run time by pandas_to_datetime (0.8); a value that does not fit stops the script where
+    pandas leaves the column as text. An empty header is named "Unnamed: n" only when --data shows
     it; a repeated header name is a TODO then.
     """
     known = {"filepath_or_buffer", "sep", "delimiter", "usecols", "dtype", "parse_dates",
@@ -190,9 +193,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     if parse_dates:
         if parse_dates is True or not all(isinstance(c, str) for c in parse_dates):
             raise ctx.todo("parse_dates must list column names")
-        ctx.lower("parse_dates: the format is inferred by Polars; ISO dates parse the same, "
-                  "ambiguous day/month orders may not", 0.85)
-        exprs = [emit.col(c).attr("str").method("to_datetime", time_unit="us") for c in parse_dates]
+        exprs = [_parsed_dates(c, schema, ctx) for c in parse_dates]
         frame = derive(frame, frame.code.method("with_columns", *exprs), same_rows=True,
                        dtypes=tuple({**dict(frame.dtypes), **{c: "datetime" for c in parse_dates}}.items()))
     if schema is None and ctx.schema_lookup is not None and isinstance(_paths(source), str) \
@@ -307,6 +308,31 @@ def check_source(source: Value, ctx: RuleContext) -> None:
 def _const_dtype_dict(call: PandasCall) -> bool:
     value = call.kwargs.get("dtype")
     return isinstance(value, Opaque) and isinstance(value.const, dict)
+
+
+def _parsed_dates(column: str, schema: Any, ctx: RuleContext) -> Code:
+    """read_csv(parse_dates=[column]): pandas guesses one format from the column's first value
+    and reads every value with it. With --data porter makes the same guess from the sample's
+    first value and writes that format; without, pandas_to_datetime guesses it at run time."""
+    first = (getattr(schema, "first_texts", None) or {}).get(column)
+    fmt = None
+    if first is not None:
+        import warnings
+
+        from pandas.tseries.api import guess_datetime_format  # pandas' own guess, as read_csv makes it
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")  # "Parsing dates in %d/%m/%Y format when dayfirst=False"
+            fmt = guess_datetime_format(first)
+    port = strptime_port(fmt) if fmt is not None else None
+    if isinstance(port, Strptime):
+        ctx.lower(f"parse_dates: the format pandas guesses from the sample's first value "
+                  f"({fmt!r}); a file whose first date is written otherwise is read otherwise, "
+                  "and a value that does not fit stops the script where pandas leaves the "
+                  "column as text", 0.9)
+        return formatted_parse(emit.col(column), fmt, port, coerce=False)  # type: ignore[arg-type]
+    ctx.lower(f"parse_dates: {GUESS_REASON}; a value that does not fit stops the script where "
+              "pandas leaves the column as text", 0.8)
+    return guessed_parse(emit.col(column), coerce=False)
 
 
 def _select_in_file_order(frame: Frame, usecols: list[Any], ctx: RuleContext) -> Frame:
