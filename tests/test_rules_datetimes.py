@@ -65,7 +65,7 @@ PORTS = [
                  '.then(pl.col("raw")).str.to_datetime("%Y-%m-%d %H:%M:%S", time_unit="us", '
                  'strict=False)', id="to_datetime errors=coerce"),
     pytest.param('pd.to_datetime(df["raw"], format="%d/%m/%Y")',
-                 '.otherwise(pl.lit("=")).str.to_datetime("%d/%m/%Y", time_unit="us")',
+                 '.then(pl.lit("=")).str.to_datetime("%d/%m/%Y", time_unit="us")',
                  id="to_datetime format"),
     pytest.param('pd.to_datetime(df["raw"], format="%Y%m%d", errors="coerce")',
                  '.str.replace("(?i)^(?:(?P<Y>', id="to_datetime compact format"),

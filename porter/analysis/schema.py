@@ -47,6 +47,7 @@ class FileSchema(dict[str, str]):
     # each text column's first value that is not missing or one of pandas' texts for NaT:
     # pandas guesses a date format from it (read_csv(parse_dates=...))
     first_texts: dict[str, str] | None = None
+    first_texts_each: list[dict[str, str]] | None = None  # several files' (see merged)
 
 
 def polars_code(dtype: pl.DataType) -> str | None:
@@ -80,6 +81,7 @@ def merged(schemas: list[FileSchema]) -> FileSchema | None:
                 return None
     found = FileSchema(names)
     found.polars, found.partial = codes, True
+    found.first_texts_each = [s.first_texts or {} for s in schemas]
     looked = [s.blank_lines for s in schemas]
     found.blank_lines = None if None in looked else any(looked)
     found.empty_rows = any(s.empty_rows for s in schemas)

@@ -546,16 +546,20 @@ def formatted_parse(column: Code, fmt: str, port: Strptime, *, coerce: bool) -> 
     """pd.to_datetime(column, format=fmt) of a text column, `port` being strptime_port(fmt):
     the values pandas' pattern matches parse, the others are missing (coerce) or an error."""
     options: dict[str, object] = {"strict": False} if coerce else {}
+    if port.match is not None:
+        # the values pandas' pattern matches are read by chrono with the format as written;
+        # any other value is missing (coerce) or, but for pandas' texts for NaT, an unreadable
+        # text (raise)
+        matched = column.attr("str").method("contains", port.match)
+        kept = emit.when(matched, column)
+        if not coerce:
+            unreadable = emit.binop(emit.unary("~", column.method("is_in", NAT_TEXTS)), "&",
+                                    column.method("is_not_null"))
+            kept = kept.method("when", unreadable).method("then", emit.pl("lit", "="))
+        return kept.attr("str").method("to_datetime", fmt, time_unit="us", **options)
     source = column
     if not coerce:  # pandas' texts for NaT are missing, not an error
         source = source.method("replace", NAT_TEXTS, None)
-    if port.match is not None:
-        # the values pandas' pattern matches are read by chrono with the format as written;
-        # any other value is missing (coerce) or an unreadable text (raise)
-        matched = source.attr("str").method("contains", port.match)
-        kept = emit.when(matched, source) if coerce else emit.when(
-            matched.method("fill_null", True), source, emit.pl("lit", "="))
-        return kept.attr("str").method("to_datetime", fmt, time_unit="us", **options)
     return source.attr("str").method("replace", port.pattern, port.text) \
         .attr("str").method("to_datetime", port.chrono, time_unit="us", **options)
 

@@ -314,15 +314,17 @@ def _parsed_dates(column: str, schema: Any, ctx: RuleContext) -> Code:
     """read_csv(parse_dates=[column]): pandas guesses one format from the column's first value
     and reads every value with it. With --data porter makes the same guess from the sample's
     first value and writes that format; without, pandas_to_datetime guesses it at run time."""
-    first = (getattr(schema, "first_texts", None) or {}).get(column)
+    each = getattr(schema, "first_texts_each", None) or [getattr(schema, "first_texts", None) or {}]
+    firsts = [texts[column] for texts in each if column in texts]
     fmt = None
-    if first is not None:
+    if firsts:
         import warnings
 
         from pandas.tseries.api import guess_datetime_format  # pandas' own guess, as read_csv makes it
         with warnings.catch_warnings():
             warnings.simplefilter("ignore")  # "Parsing dates in %d/%m/%Y format when dayfirst=False"
-            fmt = guess_datetime_format(first)
+            formats = {guess_datetime_format(first) for first in firsts}
+        fmt = formats.pop() if len(formats) == 1 else None  # the files agree on one format
     port = strptime_port(fmt) if fmt is not None else None
     if isinstance(port, Strptime):
         ctx.lower(f"parse_dates: the format pandas guesses from the sample's first value "

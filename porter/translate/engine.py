@@ -420,10 +420,11 @@ class _Walker:
             _after_loop(_merge(env if not before else widened, after), handed)
 
     def try_on_pandas(self, stmt: cst.Try, env: dict[str, Value]) -> tuple[list[Any], dict[str, Value]] | None:
-        """A `try` whose `except` catches what pandas code in it raises stays pandas code, with
-        the frames it reads handed over first: Polars runs a plan where it is collected, later
-        and outside the `try`, and raises its own exceptions (not ValueError or KeyError), so
-        the handler would never run. None when the statement uses no pandas."""
+        """A `try` (with `except` clauses) around pandas code stays pandas code, with the frames
+        it reads handed over first and back after it: Polars runs a plan where it is collected,
+        later and outside the `try`, and raises its own exceptions (not ValueError or KeyError),
+        so a handler would not run where pandas runs it. None when the statement uses no
+        pandas."""
         if not stmt.handlers:
             return None
         read = _names_read(self.services.code_for(stmt))

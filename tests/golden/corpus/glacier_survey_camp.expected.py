@@ -196,16 +196,15 @@ def load_readings(path):
     readings = readings.with_columns(
         read_on=pl.when(
             pl.col("read_on")
-            .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
             .str.contains(
                 "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
-            )
-            .fill_null(True),
+            ),
         )
-        .then(
-            pl.col("read_on").replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None),
+        .then(pl.col("read_on"))
+        .when(
+            ~pl.col("read_on").is_in(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"]) & pl.col("read_on").is_not_null(),
         )
-        .otherwise(pl.lit("="))
+        .then(pl.lit("="))
         .str.to_datetime("%Y-%m-%d", time_unit="us"),
     )
     readings = readings.with_columns(stake=pl.col("stake").str.to_uppercase())

@@ -86,17 +86,15 @@ log = log.with_columns(house=pl.col("house").str.strip_chars().str.to_lowercase(
 log = log.with_columns(
     reading_time=pl.when(
         pl.col("reading_time")
-        .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
         .str.contains(
             "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?:2[0-3]|[0-1][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]))$",
-        )
-        .fill_null(True),
+        ),
     )
-    .then(
-        pl.col("reading_time")
-        .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None),
+    .then(pl.col("reading_time"))
+    .when(
+        ~pl.col("reading_time").is_in(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"]) & pl.col("reading_time").is_not_null(),
     )
-    .otherwise(pl.lit("="))
+    .then(pl.lit("="))
     .str.to_datetime("%Y-%m-%d %H:%M", time_unit="us"),
 )
 log = log.with_columns(day=pl.col("reading_time").dt.date()).collect().lazy()

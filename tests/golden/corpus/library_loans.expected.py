@@ -183,32 +183,29 @@ def load_loans(path):
     loans = loans.with_columns(
         borrowed_on=pl.when(
             pl.col("borrowed_on")
-            .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
             .str.contains(
                 "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
-            )
-            .fill_null(True),
+            ),
         )
-        .then(
-            pl.col("borrowed_on")
-            .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None),
+        .then(pl.col("borrowed_on"))
+        .when(
+            ~pl.col("borrowed_on").is_in(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"]) & pl.col("borrowed_on").is_not_null(),
         )
-        .otherwise(pl.lit("="))
+        .then(pl.lit("="))
         .str.to_datetime("%Y-%m-%d", time_unit="us"),
     )
     loans = loans.with_columns(
         due_on=pl.when(
             pl.col("due_on")
-            .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
             .str.contains(
                 "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
-            )
-            .fill_null(True),
+            ),
         )
-        .then(
-            pl.col("due_on").replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None),
+        .then(pl.col("due_on"))
+        .when(
+            ~pl.col("due_on").is_in(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"]) & pl.col("due_on").is_not_null(),
         )
-        .otherwise(pl.lit("="))
+        .then(pl.lit("="))
         .str.to_datetime("%Y-%m-%d", time_unit="us"),
     )
     loans = loans.with_columns(

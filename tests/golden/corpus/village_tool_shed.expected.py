@@ -127,17 +127,15 @@ loans = loans.with_columns(
 loans = loans.with_columns(
     out_date=pl.when(
         pl.col("out_date")
-        .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None)
         .str.contains(
             "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
-        )
-        .fill_null(True),
+        ),
     )
-    .then(
-        pl.col("out_date")
-        .replace(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"], None),
+    .then(pl.col("out_date"))
+    .when(
+        ~pl.col("out_date").is_in(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"]) & pl.col("out_date").is_not_null(),
     )
-    .otherwise(pl.lit("="))
+    .then(pl.lit("="))
     .str.to_datetime("%Y-%m-%d", time_unit="us"),
 )
 loans = loans.with_columns(lost=(pl.col("back_date") == "lost").fill_null(False))
