@@ -10,12 +10,18 @@ needed); for to_sql, by reading the table back.
 from __future__ import annotations
 
 import ast
+import datetime as dt
 import sys
 import textwrap
 import types
 
+from hypothesis import HealthCheck, given, settings, strategies as st
+import numpy as np
 import pandas as pd
+import polars as pl
 import pytest
+
+from porter.rules.handover import TEXT_DEFINITION, TEXT_FUNCTION
 
 from rule_checks import check_todo, check_unchanged
 from support import convert, differential
@@ -249,16 +255,85 @@ df = pd.DataFrame({"k": ["b", "a", "ø", None], "v": [1, None, 3, 4], "w": [0.5,
 '''
 
 
-@pytest.mark.parametrize("source", [
-    pytest.param('shown = df.sort_values("k").to_string(index=False)', id="sorted, no labels"),
-    pytest.param('shown = df.to_string()', id="labels 0..n-1"),
-    pytest.param('shown = df.groupby("k")["v"].sum().to_string()', id="a groupby's keys"),
-    pytest.param('shown = df["w"].to_string()', id="a Series"),
+@pytest.mark.parametrize("source, laid_out_here", [
+    pytest.param('shown = df.sort_values("k").to_string(index=False)', True,
+                 id="sorted, no labels"),
+    pytest.param('shown = df.to_string()', True, id="labels 0..n-1"),
+    pytest.param('shown = df[df["w"] > 0.6].to_string(index=False)', True, id="filtered"),
+    pytest.param('shown = df.to_string(columns=["k"])', False, id="an option"),
+    pytest.param('shown = df.groupby("k")["v"].sum().to_string()', False, id="a groupby's keys"),
+    pytest.param('shown = df["w"].to_string()', False, id="a Series"),
 ])
-def test_to_string_lays_out_what_pandas_lays_out(source: str) -> None:
+def test_to_string_lays_out_what_pandas_lays_out(source: str, laid_out_here: bool) -> None:
     result = differential(TEXT_FRAME + source + "\n", "shown")
     assert "TODO" not in result.converted_text
-    assert [s.status for s in result.sites if s.key.endswith("to_string")] == ["handover"]
+    assert ("pandas_to_string(" in result.converted_text) is laid_out_here
+    status = "converted" if laid_out_here else "handover"
+    assert [s.status for s in result.sites if s.key.endswith("to_string")] == [status]
+
+
+def _text_function():
+    namespace: dict = {"pl": pl}
+    exec(TEXT_DEFINITION, namespace)
+    return namespace[TEXT_FUNCTION]
+
+
+_TIMES = st.datetimes(min_value=dt.datetime(1990, 1, 1), max_value=dt.datetime(2100, 1, 1))
+_FLOATS = st.one_of(st.floats(), st.floats(-1e3, 1e3), st.none(),
+                    st.sampled_from([0.5, 2.675, 1e-7, 1e7, 123456.789, -0.0, 0.1, 1e16]))
+_INTS = st.one_of(st.integers(-10**12, 10**12), st.integers(-5, 5))
+_TEXTS = st.one_of(st.text(max_size=60), st.sampled_from(["a", "é", "x\ty", "", "naïve " * 10]))
+
+
+@st.composite
+def _frame_pairs(draw):
+    """The same small table as pandas holds it and as a converted script's Polars frame holds
+    it: an int column with a missing value is float in pandas, a boolean one object."""
+    n = draw(st.integers(0, 8))
+    in_pandas, in_polars = {}, {}
+    kinds = draw(st.lists(st.sampled_from(["int", "float", "text", "bool", "category", "time",
+                                           "date"]), min_size=1, max_size=4))
+    for i, kind in enumerate(kinds):
+        name = draw(st.sampled_from(["a", "kg", "name", "x y", "ü", "a_long_column_name"])) + str(i)
+        missing = draw(st.booleans())
+
+        def values(strategy):
+            return draw(st.lists(st.one_of(strategy, st.none()) if missing else strategy,
+                                 min_size=n, max_size=n))
+        if kind == "int":
+            v = values(_INTS)
+            in_polars[name] = pl.Series(v, dtype=pl.Int64)
+            in_pandas[name] = pd.Series([np.nan if x is None else x for x in v],
+                                        dtype="float64" if None in v else "int64")
+        elif kind == "float":
+            v = draw(st.lists(_FLOATS, min_size=n, max_size=n))
+            in_polars[name] = pl.Series(v, dtype=pl.Float64)
+            in_pandas[name] = pd.Series([np.nan if x is None else x for x in v], dtype="float64")
+        elif kind == "bool":
+            v = values(st.booleans())
+            in_polars[name] = pl.Series(v, dtype=pl.Boolean)
+            in_pandas[name] = pd.Series([np.nan if x is None else x for x in v],
+                                        dtype=object if None in v else bool)
+        elif kind in ("text", "category"):
+            v = values(_TEXTS)
+            in_polars[name] = pl.Series(v, dtype=pl.String if kind == "text" else pl.Categorical)
+            in_pandas[name] = pd.Series(v, dtype="str" if kind == "text" else "category")
+        else:
+            v = values(_TIMES)
+            if kind == "date":
+                v = [None if x is None else dt.datetime(x.year, x.month, x.day) for x in v]
+            in_polars[name] = pl.Series(v, dtype=pl.Datetime("us"))
+            in_pandas[name] = pd.Series(pd.to_datetime(v), dtype="datetime64[us]")
+    return pd.DataFrame(in_pandas), pl.DataFrame(in_polars)
+
+
+@settings(max_examples=400, deadline=None, derandomize=True,
+          suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large])
+@given(_frame_pairs(), st.booleans())
+def test_the_text_function_lays_frames_out_as_pandas_does(pair, index) -> None:
+    # pandas itself is the reference: its DataFrame.to_string() of the same table
+    in_pandas, in_polars = pair
+    assert _text_function()(in_polars, index=index) == in_pandas.to_string(index=index)
 
 
 def test_to_string_with_labels_a_sort_changed_is_pandas_own() -> None:

@@ -6,6 +6,7 @@ import libcst as cst
 
 from porter.analysis.imports import ImportFacts
 from porter.rules.datetimes import GUESS_DEFINITION, GUESS_FUNCTION
+from porter.rules.handover import TEXT_DEFINITION, TEXT_FUNCTION
 from porter.rules.io_options import (
     CATEGORY_COUNTS_DEFINITION, CATEGORY_COUNTS_FUNCTION,
     CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION, CSV_DURATIONS_CONSTANT, CSV_LISTS_CONSTANT,
@@ -100,7 +101,8 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (UNSTACKED_FUNCTION, UNSTACKED_DEFINITION),
                                  (CATEGORY_COUNTS_FUNCTION, CATEGORY_COUNTS_DEFINITION),
                                  (ROW_FUNCTION, ROW_DEFINITION),
-                                 (GUESS_FUNCTION, GUESS_DEFINITION)):
+                                 (GUESS_FUNCTION, GUESS_DEFINITION),
+                                 (TEXT_FUNCTION, TEXT_DEFINITION)):
         if function not in used or _defines(module, function):
             continue
         body = _insert_after_imports(body, _function(definition))
