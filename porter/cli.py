@@ -106,6 +106,15 @@ def build_parser() -> argparse.ArgumentParser:
     verify.add_argument("--data", metavar="DIR", required=True,
                         help="the folder the script runs in (copied; never written)")
     _verify_options(verify)
+    trials = verify.add_argument_group("randomised trials")
+    trials.add_argument("--trials", type=_count, default=0, metavar="K",
+                        help="after the sample, run both scripts on K datasets drawn from it "
+                             "(missing values, ties, duplicates, rounding halves, tiny tables); "
+                             "at the first disagreement, shrink it and write the data to a folder")
+    trials.add_argument("--seed", type=int, default=0,
+                        help="the trials' seed: the same seed draws the same datasets (default 0)")
+    trials.add_argument("--trials-out", metavar="DIR", default=None,
+                        help="where the smallest disagreeing dataset is written (default: here)")
     _debug_option(verify)
 
     scan = commands.add_parser(
@@ -426,11 +435,35 @@ def _run_verify(args: argparse.Namespace, original: str, converted: str | None, 
     print(render(result, original, label), file=stream)
     if args.keep:
         print(kept_folders(result), file=stream)
+    report = result.to_json()
+    trials = None
+    if getattr(args, "trials", 0):
+        trials = _run_trials(args, original, converted, options, stream)
+        report["trials"] = trials.to_json()
     if args.json:
-        _write(Path(args.json), json.dumps(result.to_json(), indent=2) + "\n")
-    if result.verdict == "same":
+        _write(Path(args.json), json.dumps(report, indent=2) + "\n")
+    if result.verdict == "same" and (trials is None or trials.disagreement is None):
         return EXIT_OK, result
     return (EXIT_USAGE if result.verdict == "error" else EXIT_TODO), result
+
+
+def _run_trials(args: argparse.Namespace, original: str, converted: str | None, options,
+                stream: TextIO):  # type: ignore[no-untyped-def]
+    from porter.verify.trials import TrialOptions, render, run_trials
+    if converted is None:
+        from porter.api import convert_source
+        from porter.model import Options
+        converted = convert_source(Path(original).read_text(encoding="utf-8"), path=original,
+                                   options=Options(data_dir=args.data)).converted_text
+    out = Path(args.trials_out) if args.trials_out else None
+    if out is not None and not out.is_dir():
+        raise ConversionError("no such folder", str(out))
+    trials = run_trials(original, converted, args.data,
+                        TrialOptions(trials=args.trials, seed=args.seed, out=out), options,
+                        progress=lambda line: print(f"porter: {line}", file=sys.stderr),
+                        converted_path=args.converted)
+    print(render(trials), file=stream)
+    return trials
 
 
 def _write(path: Path, text: str) -> None:

@@ -1,0 +1,366 @@
+"""Randomised trials: both scripts on many small datasets drawn from the user's sample.
+
+A sample that verifies "same" can be friendly: no missing value in a group key, no tie in a
+sort key, no empty table. `porter verify --trials K` therefore runs both scripts again on K
+datasets made from the sample in `--data`, seeded and reproducible (`--seed`):
+
+- every CSV file keeps its lines before the data (comments, the header) and its separator;
+  its data rows are drawn again: whole rows of the sample (so related cells stay together)
+  and rows whose cells are drawn column by column from what that column holds, so keys repeat
+  and sort keys tie;
+- each trial mixes in the awkward cases: empty cells (a missing value to both readers),
+  numbers at rounding halves and negative zero, text in another case or with a non-ASCII
+  letter, and tables of 0, 1 or 2 rows;
+- files that are not CSV are copied as they are (and named in the result).
+
+A trial on which the original script itself fails tells nothing about the conversion and is
+counted as skipped. At the first trial where the outputs differ, or the conversion fails where
+the original runs, porter shrinks that trial's data (drops rows while the disagreement stays),
+writes the smallest dataset to a folder and gives the one command that shows it again.
+"""
+
+from __future__ import annotations
+
+import csv
+from dataclasses import dataclass, field, replace
+import io
+from pathlib import Path
+import random
+import re
+import shutil
+import tempfile
+from typing import Callable
+
+from porter.model import ConversionError
+from porter.rules.io_options import PANDAS_NA_TOKENS
+from porter.verify.api import VerifyOptions, verify
+from porter.verify.model import OutputResult, VerifyResult
+
+_NUMBER = re.compile(r"^\s*[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?\s*$")
+_INTEGER = re.compile(r"^\s*[+-]?\d+\s*$")
+_ISO_DATE = re.compile(r"^(\d{4})-(\d{2})-(\d{2})(.*)$")
+_SEPARATORS = (",", ";", "\t", "|")
+_MISSING = set(PANDAS_NA_TOKENS)  # text pandas' read_csv reads as a missing value
+
+
+@dataclass(frozen=True)
+class TrialOptions:
+    trials: int = 20
+    seed: int = 0
+    max_rows: int = 30
+    shrink_runs: int = 40  # verification runs the shrinking may take at most
+    out: Path | None = None  # where the smallest disagreeing dataset goes (default: the cwd)
+
+
+@dataclass(frozen=True)
+class Trial:
+    number: int
+    rows: dict[str, int]  # data rows per varied file
+    verdict: str  # same | same-unordered | different | error | skipped
+    detail: str = ""
+
+
+@dataclass(frozen=True)
+class Disagreement:
+    trial: int
+    folder: str  # the smallest dataset that still shows it
+    command: str  # the one line that shows it again
+    rows: dict[str, int]
+    outputs: tuple[OutputResult, ...]  # the outputs that differ there
+    converted_stderr: str = ""  # when the conversion failed where the original ran
+    shrink_runs: int = 0
+
+    def to_json(self) -> dict[str, object]:
+        return {"trial": self.trial, "folder": self.folder, "command": self.command,
+                "rows": self.rows, "outputs": [o.to_json() for o in self.outputs],
+                "converted_stderr_tail": "\n".join(self.converted_stderr.splitlines()[-20:]),
+                "shrink_runs": self.shrink_runs}
+
+
+@dataclass(frozen=True)
+class TrialsResult:
+    seed: int
+    trials: tuple[Trial, ...]
+    varied: tuple[str, ...]  # the CSV files each trial draws again
+    copied: tuple[str, ...]  # other files, copied as they are
+    disagreement: Disagreement | None = None
+
+    @property
+    def agreed(self) -> int:
+        return sum(t.verdict in ("same", "same-unordered") for t in self.trials)
+
+    @property
+    def skipped(self) -> int:
+        return sum(t.verdict == "skipped" for t in self.trials)
+
+    def to_json(self) -> dict[str, object]:
+        return {"seed": self.seed, "run": len(self.trials), "agreed": self.agreed,
+                "skipped": self.skipped, "varied": list(self.varied), "copied": list(self.copied),
+                "trials": [{"trial": t.number, "rows": t.rows, "verdict": t.verdict,
+                            "detail": t.detail} for t in self.trials],
+                "disagreement": None if self.disagreement is None else self.disagreement.to_json()}
+
+
+# --- the sample's tables --------------------------------------------------------------------
+
+@dataclass
+class _Column:
+    cells: list[str]  # what the sample holds, as written
+    kind: str  # "int", "float", "text"
+    edges: list[str] = field(default_factory=list)
+
+
+@dataclass
+class _Table:
+    """A CSV file of the sample: the lines before its data as they are, its rows as cells."""
+
+    path: str  # relative to the data folder
+    head: list[str]
+    separator: str
+    rows: list[list[str]]
+    columns: list[_Column]
+
+
+def _read_table(root: Path, path: Path) -> _Table | None:
+    """The file as lines before the data and rows of cells; None when its rows do not all
+    split into the header's number of cells (the file is then copied as it is)."""
+    try:
+        text = path.read_text(encoding="utf-8-sig")
+    except (OSError, UnicodeDecodeError):
+        return None
+    lines = text.splitlines()
+    first = next((i for i, line in enumerate(lines) if line.strip()
+                  and not line.lstrip().startswith("#")), None)
+    if first is None:
+        return None
+    header = lines[first]
+    separator = max(_SEPARATORS, key=header.count)
+    width = len(next(csv.reader([header], delimiter=separator)))
+    body = [line for line in lines[first + 1:] if line.strip()]
+    rows = list(csv.reader(body, delimiter=separator))
+    if width < 1 or any(len(row) != width for row in rows) or not rows:
+        return None
+    columns = [_column([row[i] for row in rows]) for i in range(width)]
+    return _Table(str(path.relative_to(root)), lines[:first + 1], separator, rows, columns)
+
+
+def _column(cells: list[str]) -> _Column:
+    present = [c for c in cells if c.strip() and c not in _MISSING]
+    if present and all(_INTEGER.match(c) for c in present):
+        kind = "int"
+    elif present and all(_NUMBER.match(c) for c in present):
+        kind = "float"
+    else:
+        kind = "text"
+    return _Column(cells, kind, _edges(present, kind))
+
+
+def _edges(present: list[str], kind: str) -> list[str]:
+    """Awkward values of the column's own kind, made from what it holds."""
+    distinct = sorted(set(present))[:20]
+    if kind == "int":
+        return ["0", "-1", *distinct[:3]]
+    if kind == "float":
+        halves = []
+        for cell in distinct[:6]:
+            whole = int(float(cell))
+            halves += [f"{whole}.5", f"{whole + 1}.5", f"-{abs(whole)}.5"]
+        return ["0.0", "-0.0", "0.125", "2.675", *halves]
+    edges = []
+    for cell in distinct[:6]:
+        date = _ISO_DATE.match(cell)
+        if date:  # the ends of months and years, in the same layout
+            edges += [day + date.group(4)
+                      for day in ("2023-12-31", "2024-01-01", "2024-02-29", "2024-03-31")]
+        else:  # another case, a letter outside ASCII
+            edges += [cell.upper(), cell.lower(), cell + "é"]
+    return edges
+
+
+# --- drawing a trial ------------------------------------------------------------------------
+
+def _draw(table: _Table, rnd: random.Random, max_rows: int, missing: float,
+          awkward: float) -> list[list[str]]:
+    count = rnd.choice([0, 1, 2, rnd.randint(3, max_rows), rnd.randint(3, max_rows),
+                        rnd.randint(3, max_rows)])
+    rows = []
+    for _ in range(count):
+        if rnd.random() < 0.5:
+            row = list(rnd.choice(table.rows))
+        else:
+            row = [rnd.choice(col.cells) for col in table.columns]
+        for i, col in enumerate(table.columns):
+            roll = rnd.random()
+            if roll < missing:
+                row[i] = ""
+            elif roll < missing + awkward and col.edges:
+                row[i] = rnd.choice(col.edges)
+        rows.append(row)
+    return rows
+
+
+def _write_table(table: _Table, rows: list[list[str]], folder: Path) -> None:
+    out = io.StringIO()
+    writer = csv.writer(out, delimiter=table.separator, lineterminator="\n")
+    writer.writerows(rows)
+    target = folder / table.path
+    target.parent.mkdir(parents=True, exist_ok=True)
+    target.write_text("\n".join(table.head) + "\n" + out.getvalue(), encoding="utf-8")
+
+
+def _dataset(data: Path, tables: list[_Table], drawn: dict[str, list[list[str]]],
+             folder: Path) -> Path:
+    """A copy of the data folder with the varied tables written over their files."""
+    shutil.copytree(data, folder)
+    for table in tables:
+        _write_table(table, drawn[table.path], folder)
+    return folder
+
+
+# --- running --------------------------------------------------------------------------------
+
+def _disagrees(result: VerifyResult) -> bool:
+    if result.original.exit_code != 0:
+        return False
+    return result.verdict not in ("same", "same-unordered")
+
+
+def _kind(result: VerifyResult) -> object:
+    """What the disagreement is: the conversion failing, or which outputs differ. Shrinking
+    keeps it, so that the smallest dataset shows the same problem, not another one."""
+    if result.converted.exit_code != 0:
+        return "the converted script failed"
+    return frozenset(o.name for o in result.outputs
+                     if o.comparison.status not in ("same", "same-unordered"))
+
+
+def run_trials(original: str | Path, converted_text: str, data_dir: str | Path,
+               options: TrialOptions, verify_options: VerifyOptions | None = None,
+               progress: Callable[[str], None] | None = None,
+               converted_path: str | None = None) -> TrialsResult:
+    """Run both scripts on `options.trials` datasets drawn from `data_dir` (see the module)."""
+    data = Path(data_dir)
+    if not data.is_dir():
+        raise ConversionError("no such folder (--data is the folder the script runs in)", str(data))
+    verify_options = replace(verify_options or VerifyOptions(), timing_runs=0, keep=False)
+    tables, copied = [], []
+    for path in sorted(p for p in data.rglob("*") if p.is_file()):
+        table = _read_table(data, path) if path.suffix.lower() in (".csv", ".txt", ".tsv") else None
+        if table is None and path.suffix != ".py":
+            copied.append(str(path.relative_to(data)))
+        elif table is None:
+            continue
+        else:
+            tables.append(table)
+    say = progress or (lambda _: None)
+    trials: list[Trial] = []
+    work = Path(tempfile.mkdtemp(prefix="porter-trials-"))
+    try:
+        for number in range(1, options.trials + 1):
+            rnd = random.Random(f"{options.seed}:{number}")
+            missing = rnd.choice([0.0, 0.0, 0.1, 0.3])
+            awkward = rnd.choice([0.0, 0.1, 0.25])
+            drawn = {t.path: _draw(t, rnd, options.max_rows, missing, awkward) for t in tables}
+            folder = _dataset(data, tables, drawn, work / f"trial-{number}")
+            result = verify(original, converted_text, folder, verify_options)
+            rows = {path: len(r) for path, r in drawn.items()}
+            if result.original.exit_code != 0:
+                trial = Trial(number, rows, "skipped", "the original script fails on this data")
+            else:
+                trial = Trial(number, rows, result.verdict, _summary(result))
+            trials.append(trial)
+            say(f"trial {number}/{options.trials}: {trial.verdict}"
+                + (f" ({trial.detail})" if trial.detail else ""))
+            if _disagrees(result):
+                disagreement = _shrink(original, converted_text, data, tables, drawn, result,
+                                       number, options, verify_options, work, say,
+                                       converted_path)
+                return TrialsResult(options.seed, tuple(trials), tuple(t.path for t in tables),
+                                    tuple(copied), disagreement)
+            shutil.rmtree(folder, ignore_errors=True)
+    finally:
+        shutil.rmtree(work, ignore_errors=True)
+    return TrialsResult(options.seed, tuple(trials), tuple(t.path for t in tables), tuple(copied))
+
+
+def _summary(result: VerifyResult) -> str:
+    odd = [o for o in result.outputs if o.comparison.status not in ("same", "same-unordered")]
+    if result.converted.exit_code != 0:
+        return f"the converted script {result.converted.failure or 'failed'}"
+    return "; ".join(f"{o.name}: {o.comparison.status}" for o in odd[:3])
+
+
+def _shrink(original: str | Path, converted_text: str, data: Path, tables: list[_Table],
+            drawn: dict[str, list[list[str]]], result: VerifyResult, number: int,
+            options: TrialOptions, verify_options: VerifyOptions, work: Path,
+            say: Callable[[str], None], converted_path: str | None) -> Disagreement:
+    """Drop rows (halves, then single rows) while both scripts still disagree; write the
+    smallest dataset found within `options.shrink_runs` runs."""
+    runs = 0
+    kind = _kind(result)
+    current = {path: list(rows) for path, rows in drawn.items()}
+
+    def still(candidate: dict[str, list[list[str]]]) -> VerifyResult | None:
+        nonlocal runs
+        runs += 1
+        folder = _dataset(data, tables, candidate, work / f"shrink-{runs}")
+        try:
+            attempt = verify(original, converted_text, folder, verify_options)
+        finally:
+            shutil.rmtree(folder, ignore_errors=True)
+        return attempt if _disagrees(attempt) and _kind(attempt) == kind else None
+
+    for path in sorted(current, key=lambda p: -len(current[p])):
+        chunk = max(1, len(current[path]) // 2)
+        while runs < options.shrink_runs:
+            start = 0
+            while start < len(current[path]) and runs < options.shrink_runs:
+                candidate = dict(current)
+                candidate[path] = current[path][:start] + current[path][start + chunk:]
+                attempt = still(candidate)
+                if attempt is None:
+                    start += chunk
+                    continue
+                current, result = candidate, attempt
+                say(f"shrinking: {sum(map(len, current.values()))} rows left")
+            if chunk == 1:
+                break
+            chunk //= 2
+    out = (options.out or Path.cwd()) / f"porter-trial-{options.seed}-{number}"
+    if out.exists():
+        shutil.rmtree(out)
+    _dataset(data, tables, current, out)
+    script = str(original)
+    command = f"porter verify {script}" + (f" {converted_path}" if converted_path else "") \
+        + f" --data {out}"
+    differing = tuple(o for o in result.outputs
+                      if o.comparison.status not in ("same", "same-unordered"))
+    stderr = result.converted.stderr if result.converted.exit_code != 0 else ""
+    return Disagreement(number, str(out), command, {p: len(r) for p, r in current.items()},
+                        differing, stderr, runs)
+
+
+def render(trials: TrialsResult) -> str:
+    """The trials on a terminal."""
+    run = len(trials.trials)
+    lines = [f"porter trials (seed {trials.seed}): {trials.agreed} of {run} agreed, "
+             f"{trials.skipped} skipped (the original script failed on that data)"]
+    if trials.copied:
+        lines.append(f"  copied as they are (not varied): {', '.join(trials.copied)}")
+    if not trials.varied:
+        lines.append("  no CSV file to vary: every trial ran on the sample as it is")
+    d = trials.disagreement
+    if d is None:
+        return "\n".join(lines)
+    rows = ", ".join(f"{path} {n} rows" for path, n in d.rows.items())
+    lines += [f"  DISAGREEMENT on trial {d.trial}; the smallest data found ({rows}) is in",
+              f"    {d.folder}", f"  show it again with:", f"    {d.command}"]
+    for o in d.outputs:
+        lines.append(f"  {o.name}: {o.comparison.status} {o.comparison.detail}".rstrip())
+        for row, a, b in o.comparison.first_rows[:3]:
+            lines.append(f"      row {row}: original  {a}")
+            lines.append(f"      {' ' * len(str(row))}     converted {b}")
+    if d.converted_stderr:
+        lines.append("  the converted script failed; last lines of its stderr:")
+        lines += ["    " + line for line in d.converted_stderr.splitlines()[-8:]]
+    return "\n".join(lines)

@@ -1,0 +1,82 @@
+"""Randomised trials (`porter verify --trials K`): datasets drawn from the sample catch
+conversions that the sample itself lets through.
+
+pandas is the reference: the original script runs with pandas on every trial. The broken
+conversions in verify_fixtures/trials/ each fall into a known trap (a group for a missing key,
+a count of rows where pandas counts values, a missing value taken as 0, halves rounded away
+from zero); the sample holds none of those cases, so verifying on it says "same".
+"""
+
+from __future__ import annotations
+
+import json
+from pathlib import Path
+
+import pytest
+
+from porter.api import convert_source
+from porter.cli import main
+from porter.model import Options
+from porter.verify.api import verify
+from porter.verify.trials import TrialOptions, run_trials
+
+FIXTURES = Path(__file__).resolve().parent / "verify_fixtures" / "trials"
+ORIGINAL = FIXTURES / "landings.py"
+BROKEN = ["broken_null_key.py", "broken_count.py", "broken_mean.py", "broken_round.py"]
+
+
+def _text(name: str) -> str:
+    return (FIXTURES / name).read_text(encoding="utf-8")
+
+
+@pytest.mark.parametrize("broken", BROKEN)
+def test_the_sample_alone_does_not_show_the_broken_conversions(broken):
+    assert verify(ORIGINAL, _text(broken), FIXTURES).verdict == "same"
+
+
+@pytest.mark.parametrize("broken", BROKEN)
+def test_trials_catch_each_broken_conversion_and_keep_the_smallest_data(broken, tmp_path):
+    result = run_trials(ORIGINAL, _text(broken), FIXTURES,
+                        TrialOptions(trials=12, seed=0, shrink_runs=10, out=tmp_path))
+    found = result.disagreement
+    assert found is not None, [t.verdict for t in result.trials]
+    assert result.trials[-1].verdict in ("different", "error")
+    assert found.outputs and {o.comparison.status for o in found.outputs} == {"different"}
+    # the folder holds the data that shows it again, smaller than the trial's own
+    assert sum(found.rows.values()) <= result.trials[-1].rows["data/landings.csv"]
+    again = verify(ORIGINAL, _text(broken), found.folder)
+    assert again.verdict == "different"
+    assert found.command.endswith(f"--data {found.folder}")
+
+
+def test_faithful_conversions_agree_on_every_trial():
+    # by hand, and porter's own conversion of the original
+    converted = convert_source(ORIGINAL.read_text(encoding="utf-8"), path=str(ORIGINAL),
+                               options=Options(data_dir=str(FIXTURES))).converted_text
+    for text in (_text("landings_polars.py"), converted):
+        result = run_trials(ORIGINAL, text, FIXTURES, TrialOptions(trials=8, seed=3))
+        assert result.disagreement is None, result.to_json()
+        assert result.agreed + result.skipped == 8
+        assert result.varied == ("data/landings.csv",)
+
+
+def test_the_same_seed_draws_the_same_datasets():
+    text = _text("landings_polars.py")
+    first, again, other = (run_trials(ORIGINAL, text, FIXTURES, TrialOptions(trials=4, seed=s))
+                           for s in (11, 11, 12))
+    rows = [[t.rows for t in r.trials] for r in (first, again, other)]
+    assert rows[0] == rows[1]
+    assert rows[0] != rows[2]
+
+
+def test_the_command_line_reports_trials_in_the_json(tmp_path, capsys):
+    report = tmp_path / "verdict.json"
+    code = main(["verify", str(ORIGINAL), str(FIXTURES / "broken_mean.py"), "--data",
+                 str(FIXTURES), "--trials", "12", "--trials-out", str(tmp_path),
+                 "--json", str(report)])
+    out = capsys.readouterr().out
+    assert code == 1
+    assert "DISAGREEMENT" in out and "porter verify" in out
+    trials = json.loads(report.read_text())["trials"]
+    assert trials["seed"] == 0 and trials["disagreement"]["outputs"]
+    assert Path(trials["disagreement"]["folder"]).parent == tmp_path

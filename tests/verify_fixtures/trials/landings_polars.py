@@ -1,0 +1,16 @@
+"""Harbour landings, written by hand in Polars: what pandas computes, on any data."""
+import polars as pl
+
+landings = pl.scan_csv("data/landings.csv", schema_overrides={"kg": pl.Float64})
+per_boat = (
+    landings
+    .filter(pl.col("boat").is_not_null())
+    .group_by("boat")
+    .agg(
+        catches=pl.col("kg").count().cast(pl.Int64),
+        mean_kg=pl.col("kg").mean(),
+    )
+    .sort("boat")
+    .with_columns(pl.col("mean_kg").round(0))
+)
+per_boat.sink_csv("per_boat.csv")
