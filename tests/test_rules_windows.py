@@ -257,7 +257,8 @@ result = df.groupby("k")["v"].rank(pct=True).tolist()
     ('df.groupby("k")["v"].bfill(limit=2)', 'pl.col("v").backward_fill(limit=2).over("k")'),
     ('df.groupby("k")["v"].rank(method="first", ascending=False)',
      'pl.col("v").rank("ordinal", descending=True).cast(pl.Float64).over("k")'),
-    ('df.groupby("k")["v"].pct_change()', 'pl.col("v").pct_change().fill_nan(None).over("k")'),
+    ('df.groupby("k")["v"].pct_change()',
+     '(pl.col("v") / pl.col("v").shift(1) - 1).fill_nan(None).over("k")'),
     ('df.groupby("k")["v"].transform(lambda s: s - s.mean())',
      '(pl.col("v") - pl.col("v").mean()).fill_nan(None).over("k")'),
     ('df.groupby("k")["v"].transform(lambda s: s.fillna(s.mean()))',
@@ -668,3 +669,42 @@ df["by_k"] = df.groupby("k")["rate"].transform(lambda s: s.rolling(2, min_period
 '''
     result = differential(source, "df")
     assert "TODO" not in result.converted_text
+
+
+# -- pct_change: pandas' own formula, x / prev - 1 ----------------------------------------------
+
+PCT = '''
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"k": ["a", "a", "a", "a", "b", "b", "b", None, "b", "a"],
+                   "w": [12.5, 15.25, -1.0, -1.0, 2.0, 2.0, 0.0, 4.0, np.nan, 0.0],
+                   "n": [3, 3, 0, 0, 7, 0, 5, 1, 2, -3]})
+'''
+
+
+def _bits(values: list[float]) -> list[str]:
+    """Each value to the last bit, with the sign of zero; NaN and None alike (missing)."""
+    return ["missing" if v is None or v != v else repr(float(v)) for v in values]
+
+
+@pytest.mark.parametrize("expr", [
+    'df.groupby("k")["w"].pct_change()', 'df.groupby("k")["n"].pct_change()',
+    'df.groupby("k")["w"].pct_change(periods=-1)', 'df.groupby("k")["n"].pct_change(2)',
+    'df.groupby("k", dropna=False)["w"].pct_change()', 'df.groupby("k")["w"].transform("pct_change")',
+    'df["w"].pct_change()', 'df["n"].pct_change()', 'df["w"].pct_change(periods=2)',
+    'df["n"].pct_change(-1)',
+])
+def test_pct_change_is_pandas_formula_to_the_last_bit(expr: str) -> None:
+    # pandas: 15.25 / 12.5 - 1 is 0.21999999999999997 and -1 / -1 - 1 is 0.0; Polars'
+    # pct_change ((x - prev) / prev) gives 0.22 and -0.0
+    source = PCT + f'result = {expr}.tolist()\n'
+    result = differential(source)
+    assert not result.todos, result.converted_text
+    assert _bits(run(result.converted_text)["result"]) == _bits(run(source)["result"])
+
+
+def test_pct_change_ports_and_keeps_freq_on_pandas() -> None:
+    check_ports(PCT + 'df["p"] = df["w"].pct_change()\n',
+                '(pl.col("w") / pl.col("w").shift(1) - 1).fill_nan(None)')
+    todos = convert(PCT + 'df["p"] = df["w"].pct_change(freq="D")\n').todos
+    assert "series.pct_change" in [t.key for t in todos]

@@ -455,23 +455,50 @@ def group_rank(call: PandasCall, ctx: RuleContext) -> Value:
     return derived_column(column, _window(grouped, rank, over=ratio), dtype="float")
 
 
-@rule("groupby.pct_change")
-def group_pct_change(call: PandasCall, ctx: RuleContext) -> Value:
-    """df.groupby(keys)[col].pct_change(n) -> .pct_change(n).over(keys).
-
-    Handles: pandas 3 no longer fills missing values first (fill_method=None), nor does
-    Polars: a change from or to a missing value is missing; 0 / 0 is NaN, a missing value
-    (fill_nan(None)), x / 0 is inf in both; a missing key gives a missing value.
-    """
-    grouped, column = _selected(call)
+def pct_change_code(column: Column, call: PandasCall, ctx: RuleContext) -> Code:
+    """pandas' percent change of `column` as pandas computes it: `x / x.shift(n) - 1` (Polars'
+    pct_change computes `(x - prev) / prev`, which gives -0.0 where pandas gives 0.0 and
+    other last digits: 0.22 where pandas has 0.21999999999999997)."""
     ctx.reject_unknown(call, "periods", "fill_method", positional=1)
     periods = call.const("periods", 0, 1, kinds=(int,))
+    if isinstance(periods, bool):
+        raise Unsupported("periods=True")
     if call.const("fill_method", None, None) is not None:
         raise Unsupported("fill_method (pandas 3 raises)")
     if column.dtype in NOT_NUMERIC or column.dtype == "bool":
         raise Unsupported(f"pct_change of a {column.dtype} column")
-    expr = column.code.method("pct_change", *([periods] if periods != 1 else []))
-    return derived_column(column, _window(grouped, expr.method("fill_nan", None)), dtype="float")
+    # pandas 3 fills nothing first (fill_method=None; groupby's ffill(limit=0) fills
+    # nothing): a change from or to a missing value is missing, as Polars' shift leaves it;
+    # 0 / 0 is NaN, missing for pandas (fill_nan(None)); x / 0 is ±inf in both
+    ratio = emit.binop(column.code, "/", column.code.method("shift", periods))
+    return emit.binop(ratio, "-", 1).method("fill_nan", None)
+
+
+@rule("series.pct_change")
+def series_pct_change(call: PandasCall, ctx: RuleContext) -> Value:
+    """Series.pct_change(n) -> (x / x.shift(n) - 1).fill_nan(None), pandas' own formula.
+
+    Handles: pandas 3 no longer fills missing values first (fill_method=None): a change from
+    or to a missing value is missing; 0 / 0 is a missing value, x / 0 is ±inf; the result is
+    `x / prev - 1` to the last bit (0.0, not -0.0, for two equal negative values).
+    Caveats: freq= (shifting the index) is a TODO.
+    """
+    column = _column(call)
+    return derived_column(column, pct_change_code(column, call, ctx), dtype="float")
+
+
+@rule("groupby.pct_change")
+def group_pct_change(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.groupby(keys)[col].pct_change(n) -> (x / x.shift(n) - 1).fill_nan(None).over(keys).
+
+    Handles: pandas 3 no longer fills missing values first (fill_method=None): a change from
+    or to a missing value is missing; 0 / 0 is NaN, a missing value (fill_nan(None)), x / 0 is
+    inf in both; pandas' formula `x / prev - 1` to the last bit (Polars' pct_change divides
+    the difference: -0.0 for pandas' 0.0); a missing key gives a missing value.
+    """
+    grouped, column = _selected(call)
+    return derived_column(column, _window(grouped, pct_change_code(column, call, ctx)),
+                          dtype="float")
 
 
 # -- rows of each group: head, tail, nth ---------------------------------------------------------
