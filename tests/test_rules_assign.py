@@ -438,3 +438,52 @@ df.to_csv({str(out)!r}, index=False)
     expected = out.read_text()
     run(convert(source).converted_text)
     assert out.read_text() == expected
+
+
+LOCAL_RETURNS = '''
+import pandas as pd
+import numpy as np
+h = pd.DataFrame({"boat": ["A", "B", "C", None], "kg": [10.0, 2.0, np.nan, 4.5],
+                  "crew": [3.0, 1.0, 4.0, np.nan]})
+'''
+
+
+@pytest.mark.parametrize("function", [
+    pytest.param('''
+def label(row):
+    total = 0
+    for c in ["kg", "crew"]:
+        if pd.notna(row[c]):
+            total += row[c]
+    return total if total > 5 else "small"
+''', id="a number or a text"),
+    pytest.param('''
+def label(row):
+    d = {}
+    for c in ["boat", "kg"]:
+        d[c] = row[c] if isinstance(row[c], str) else "?"
+    return d
+''', id="a dict filled key by key"),
+])
+def test_a_row_function_whose_local_result_has_no_polars_type_keeps_the_frame_on_pandas(function):
+    # pandas keeps numbers beside text, or dicts, in one object column: put back into Polars
+    # they failed (ArrowInvalid) or became a struct column no CSV writer takes
+    result = differential(LOCAL_RETURNS + function + '''
+h["lab"] = h.apply(label, axis=1)
+h["n"] = h["lab"].astype(str).str.len()
+''', "h")
+    assert "pl.Series(h" not in result.converted_text
+
+
+def test_a_row_function_returning_a_number_it_adds_up_is_put_back():
+    result = differential(LOCAL_RETURNS + '''
+def load(row):
+    total = 0.0
+    for c in ["kg", "crew"]:
+        if pd.notna(row[c]):
+            total += row[c]
+    return total
+h["load"] = h.apply(load, axis=1)
+h["double"] = h["load"] * 2
+''', "h")
+    assert "pl.Series(h" in result.converted_text  # not the whole frame kept on pandas

@@ -222,12 +222,56 @@ def returned_kinds(value: PandasValue, frame: Frame, ctx: RuleContext) -> frozen
         return None
     param = params[0].arg
     element = _element_kind(node.func.value, frame)
+    local = _local_kinds(function, param, element) if not isinstance(given, ast.Lambda) else {}
     kinds: set[str] = set()
     for expression in returns:
-        found_kinds = _kinds(expression, param, element)
+        found_kinds = _kinds(expression, param, element, local)
         if found_kinds is not None:
             kinds |= found_kinds
     return frozenset(kinds) if kinds else None
+
+
+def _local_kinds(function: ast.FunctionDef, param: str,
+                 element: str | None) -> dict[str, set[str] | None]:
+    """The kinds each local name of `function` can hold, from every statement that binds it
+    (`total = 0` then `total += row[c]`: a number; `d = {}`: a dict); None for a name bound
+    in a way porter cannot read (a loop variable, an unpacking, a call it does not know)."""
+    bindings: dict[str, list[ast.AST]] = {}
+    for stmt in ast.walk(function):
+        if isinstance(stmt, (ast.Assign, ast.AnnAssign)):
+            targets = stmt.targets if isinstance(stmt, ast.Assign) else [stmt.target]
+            for target in targets:
+                if isinstance(target, ast.Name):
+                    bindings.setdefault(target.id, []).append(stmt)
+                elif isinstance(target, (ast.Tuple, ast.List, ast.Starred)):  # unpacked
+                    for name in ast.walk(target):
+                        if isinstance(name, ast.Name):
+                            bindings.setdefault(name.id, []).append(target)
+        elif isinstance(stmt, ast.AugAssign) and isinstance(stmt.target, ast.Name):
+            bindings.setdefault(stmt.target.id, []).append(stmt)
+        elif isinstance(stmt, (ast.For, ast.With, ast.NamedExpr, ast.comprehension)) or \
+                isinstance(stmt, ast.ExceptHandler) and stmt.name:
+            for name in ast.walk(getattr(stmt, "target", stmt)):
+                if isinstance(name, ast.Name):
+                    bindings.setdefault(name.id, []).append(name)
+    local: dict[str, set[str] | None] = {}
+    for name, binds in bindings.items():
+        if name == param:
+            continue
+        kinds: set[str] | None = set()
+        for bind in binds:
+            if isinstance(bind, (ast.Assign, ast.AnnAssign)) and bind.value is not None:
+                found = _kinds(bind.value, param, element)
+            elif isinstance(bind, ast.AugAssign):
+                found = set()  # the value it starts from decides: number + x stays a number
+            else:
+                found = None
+            if found is None:
+                kinds = None
+                break
+            kinds |= found
+        local[name] = kinds if kinds else None
+    return local
 
 
 def _returns_of(function: ast.FunctionDef) -> list[ast.expr]:
@@ -268,11 +312,12 @@ def _element_kind(receiver: ast.expr, frame: Frame) -> str | None:
     return None
 
 
-def _kinds(node: ast.expr, param: str, element: str | None) -> set[str] | None:
-    """The kinds of value `node` can be, one value `param` of kind `element` given; None when
-    porter cannot tell."""
+def _kinds(node: ast.expr, param: str, element: str | None,
+           local: dict[str, set[str] | None] | None = None) -> set[str] | None:
+    """The kinds of value `node` can be, one value `param` of kind `element` given (and the
+    kinds of the function's `local` names); None when porter cannot tell."""
     def of(child: ast.expr) -> set[str] | None:
-        return _kinds(child, param, element)
+        return _kinds(child, param, element, local)
 
     if isinstance(node, ast.Constant):
         kind = {type(None): "none", bool: "bool", int: "int", float: "float",
@@ -281,7 +326,9 @@ def _kinds(node: ast.expr, param: str, element: str | None) -> set[str] | None:
     if isinstance(node, ast.JoinedStr):
         return {"str"}
     if isinstance(node, ast.Name):
-        return {element} if node.id == param and element else None
+        if node.id == param:
+            return {element} if element else None
+        return (local or {}).get(node.id)
     if isinstance(node, ast.Attribute) and node.attr == "nan" and isinstance(node.value, ast.Name) \
             and node.value.id in ("np", "numpy", "math"):
         return {"float"}
