@@ -232,3 +232,35 @@ for v in ["a", "b"]:
 d = pd.concat(frames)
 labels = c.index.tolist() + d.index.tolist()
 """, "labels")
+
+
+@pytest.mark.parametrize("make", [
+    # a filter through a mask kept in a name: the same labels as the mask written inline
+    'mask = df["cars"] > 5\npos = df[mask]\n',
+    'mask = df["cars"] > 5\npos = df.loc[mask, ["boat", "cars"]]\n',
+    'm1 = df["cars"] > 0\nm2 = df["boat"].notna()\npos = df[m1 & m2]\n',
+    'm1 = df["cars"] > 0\nm2 = df["leg"] != "east"\nboth = m1 & m2\npos = df[~both]\n',
+    # the mask is an expression of another frame with the same labels
+    'mask = df["fare"] < 5.5\nother = df.copy()\npos = other[mask]\n',
+])
+@pytest.mark.parametrize("read", [
+    'result = pos.reset_index()\n',
+    'result = [list(pos.index), pos["cars"].idxmax()]\n',
+    'result = [i for i, _ in pos.iterrows()]\n',
+    'result = pos.sort_index(ascending=False).reset_index()\n',
+    'df["flag"] = pos["cars"] > 9\nresult = df\n',
+])
+def test_a_filter_through_a_named_mask_keeps_pandas_labels(make: str, read: str) -> None:
+    differential(HEAD + make + read)
+
+
+def test_a_named_mask_used_again_after_the_filter_pandas_made() -> None:
+    # the mask is computed by pandas for the filter; later uses read that pandas Series
+    differential(HEAD + """\
+mask = df["cars"] > 5
+pos = df[mask]
+labels = list(pos.index)
+count = int(mask.sum())
+df["big"] = mask
+result = df[~mask]
+""", "result", "labels", "count")

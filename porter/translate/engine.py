@@ -1057,12 +1057,18 @@ class _Walker:
         filter or sort made them the original row numbers, which a Polars frame does not keep.
         The frames the statement reads are handed to pandas in their own names (they come back
         at the next statement porter rewrites) and pandas runs the statement, so `pos` holds
-        pandas' labels. None when the statement reads something else porter made (an
-        expression in a name) or a frame whose own labels are already renumbered."""
+        pandas' labels. A Series kept in a name as an expression of one of those frames (a
+        mask, `m = df["a"] > 0; pos = df[m]`) is computed by pandas first, in its name. None
+        when the statement reads something else porter made (an expression of another frame)
+        or a frame whose own labels are already renumbered."""
         read = [n for n in _names_read(self.services.code_for(expr)) if n in env]
         frames = [n for n in read if isinstance(env[n], Frame)]
+        # the frames such a Series is an expression of, named or not in the statement
+        frames += [o for o in dict.fromkeys(env[n].frame.code.text for n in read  # type: ignore[union-attr]
+                                             if isinstance(env[n], Column) and env[n].binding is not None)
+                   if o not in frames and isinstance(env.get(o), Frame)]
         if not frames or any(not isinstance(env[n], (Frame, PandasValue, Module, Opaque, Scalar))
-                             for n in read):
+                             and not _expression_of(env[n], frames) for n in read):
             return None
         if any(env[n].index for n in frames):  # type: ignore[union-attr]
             return None
@@ -1324,6 +1330,13 @@ def _rewritten_change(target: cst.BaseExpression, value: Value, stmt: cst.BaseSm
             and isinstance(target, cst.Attribute) and target.attr.value == "name":
         owner = owner.value  # df.columns.name = None
     return isinstance(owner, cst.Name) and isinstance(stmt, cst.Assign)
+
+
+def _expression_of(value: Value, frames: list[str]) -> bool:
+    """A Series kept in a name as an expression of one of the frames `frames` name (a mask,
+    `m = df["a"] > 0`): Engine.hand_over_expressions_of has pandas compute it from them."""
+    return isinstance(value, Column) and value.binding is not None \
+        and value.frame.code.text in frames
 
 
 def _inplace_call_of(expr: cst.BaseExpression) -> str | None:
