@@ -31,7 +31,7 @@ PORTS = [
                  id="shift with a fill value"),
     pytest.param('r = df["v"].diff()', 'pl.col("v").diff()', id="diff"),
     pytest.param('r = df["v"].cumsum()', 'pl.col("v").cum_sum()', id="cumsum"),
-    pytest.param('r = df["n"].quantile(0.25)', 'pl.col("n").quantile(0.25, "linear")',
+    pytest.param('r = df["n"].quantile(0.25)', 'pandas_quantile(pl.col("n"), 0.25)',
                  id="quantile is linear as in pandas"),
     pytest.param('r = (df["v"] > 2).any()', '(pl.col("v") > 2).fill_null(False).any()',
                  id="any of a comparison"),
@@ -708,3 +708,52 @@ def test_pct_change_ports_and_keeps_freq_on_pandas() -> None:
                 '(pl.col("w") / pl.col("w").shift(1) - 1).fill_nan(None)')
     todos = convert(PCT + 'df["p"] = df["w"].pct_change(freq="D")\n').todos
     assert "series.pct_change" in [t.key for t in todos]
+
+
+# -- quantiles as numpy computes them: a + (b - a) * t, to the last bit and the sign of zero -----
+
+ZEROS = '''
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"a": [1.0, -0.125, -0.0049, 0.3, 5.0, 7.25, np.nan],
+                   "n": [4, 2, 2, 7, 1, 0, 3],
+                   "k": ["a", "a", "b", "b", "b", "a", "b"]})
+df["r"] = df["a"].round()
+df["z"] = df["a"] * 0 - 0.0
+df["one"] = df["z"].where(df["n"] == 4)
+'''
+
+
+def _signed(value: object) -> object:
+    """A number to the last bit, with the sign of zero (a missing value as None)."""
+    if isinstance(value, list):
+        return [_signed(v) for v in value]
+    if value is None or value != value:
+        return None
+    return repr(float(value))  # type: ignore[arg-type]
+
+
+@pytest.mark.parametrize("expr", [
+    'df["r"].quantile(0.25)', 'df["r"].quantile(0.5)', 'df["r"].quantile(1)', 'df["z"].quantile(0.9)',
+    'df["z"].quantile(0.25)', 'df["z"].quantile(1.0)', 'df["one"].quantile(0.5)', 'df["a"].quantile(0.07)',
+    'df["n"].quantile(0.33)', 'df[df["n"] > 9]["a"].quantile(0.5)',
+    'df.groupby("k")["r"].transform("quantile", 0.9).tolist()',
+    'df.groupby("k")["z"].transform("quantile", 0.25).tolist()',
+])
+def test_quantiles_are_numpys_to_the_last_bit(expr: str) -> None:
+    # pandas (numpy): -0.0 + (-0.0 - -0.0) * 0.25 is 0.0; Polars' quantile returns the element
+    # -0.0 itself
+    source = ZEROS + f"result = {expr}\n"
+    result = differential(source)
+    assert not result.todos, result.converted_text
+    assert _signed(run(result.converted_text)["result"]) == _signed(run(source)["result"])
+
+
+def test_describe_percentiles_are_numpys_to_the_last_bit() -> None:
+    source = ZEROS + "result = df.describe().reset_index()\n"
+    result = differential(source)
+    expected = run(source)["result"].set_index("index")
+    actual = run(result.converted_text)["result"].collect()
+    for row in ("25%", "50%", "75%"):
+        got = actual.filter(pl.col("index") == row).drop("index").row(0)
+        assert _signed(list(got)) == _signed(expected.loc[row].tolist()), row

@@ -15,7 +15,9 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.elementwise import body_expression
-from porter.rules.io_options import CATEGORY_COUNTS_FUNCTION, DIVIDE_FUNCTION, UNSTACKED_FUNCTION
+from porter.rules.io_options import (
+    CATEGORY_COUNTS_FUNCTION, DIVIDE_FUNCTION, QUANTILE_FUNCTION, UNSTACKED_FUNCTION,
+)
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, check_same_rows, column_names, derive, grouping_code,
 )
@@ -543,7 +545,8 @@ def unique(call: PandasCall, ctx: RuleContext) -> Value:
 def describe(call: PandasCall, ctx: RuleContext) -> Value:
     """df.describe() -> count, mean, std, min, 25%, 50%, 75%, max of the numeric columns.
 
-    Handles: percentiles interpolated linearly like pandas (Polars' default is "nearest");
+    Handles: percentiles interpolated linearly like pandas (Polars' default is "nearest"), as
+    numpy computes them to the last bit and the sign of a zero (pandas_quantile);
     booleans and text left out like pandas; the statistics as a column named "index" (pandas
     keeps them in an unnamed index, which reset_index() names "index").
     Caveats: to_csv with the index writes the header "" (quoted) where pandas writes nothing.
@@ -558,9 +561,10 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
         ("mean", numeric.method("mean")),
         ("std", numeric.method("std")),
         ("min", numeric.method("min").method("cast", as_float)),
-        ("25%", numeric.method("quantile", 0.25, "linear")),
-        ("50%", numeric.method("quantile", 0.5, "linear")),
-        ("75%", numeric.method("quantile", 0.75, "linear")),
+        # numpy's interpolation to the last bit, and the sign of a zero (pandas_quantile)
+        ("25%", emit.call(QUANTILE_FUNCTION, numeric, 0.25)),
+        ("50%", emit.call(QUANTILE_FUNCTION, numeric, 0.5)),
+        ("75%", emit.call(QUANTILE_FUNCTION, numeric, 0.75)),
         ("max", numeric.method("max").method("cast", as_float)),
     ]
     # pandas keeps the statistic names in an unnamed index, which reset_index() names "index"
@@ -585,9 +589,11 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("series.quantile")
 def series_quantile(call: PandasCall, ctx: RuleContext) -> Value:
-    """Series.quantile(q) -> select(expr.quantile(q, "linear")).collect().item().
+    """Series.quantile(q) -> select(pandas_quantile(expr, q)).collect().item().
 
-    Handles: pandas interpolates linearly (Polars' default is "nearest").
+    Handles: pandas interpolates linearly (Polars' default is "nearest"), as numpy computes
+    it to the last bit and the sign of a zero (pandas_quantile; other interpolations are
+    Polars' quantile).
     Caveats: a list of quantiles (a Series in pandas) is a TODO.
     """
     column = call.receiver
@@ -599,7 +605,12 @@ def series_quantile(call: PandasCall, ctx: RuleContext) -> Value:
     method = call.const("interpolation", None, "linear")
     if method not in ("linear", "lower", "higher", "nearest", "midpoint"):
         raise Unsupported(f"interpolation={method!r}")
-    expr = column.code.method("quantile", q, method)
+    if method == "linear" and column.dtype in ("int", "float", None):
+        # numpy's interpolation to the last bit (pandas_quantile): Polars' quantile can be a
+        # digit off, and returns -0.0 where numpy's a + (b - a) * t gives 0.0
+        expr = emit.call(QUANTILE_FUNCTION, column.code, q)
+    else:
+        expr = column.code.method("quantile", q, method)
     return scalar_of(column, expr, collected=_nan_when_empty(column, "quantile", expr, ctx))
 
 

@@ -187,15 +187,20 @@ QUANTILE_FUNCTION = "pandas_quantile"
 QUANTILE_DEFINITION = """\
 def pandas_quantile(column, q):
     \"\"\"The q quantile of the column's values as pandas computes it (numpy's linear
-    interpolation, to the last binary digit: Polars' quantile can be one digit off, which
-    moves a value sitting on a bin's edge into the next bin).\"\"\"
+    interpolation a + (b - a) * t, to the last binary digit and the sign of a zero: Polars'
+    quantile can be one digit off, which moves a value sitting on a bin's edge into the next
+    bin, and returns -0.0 where numpy's sum gives 0.0).\"\"\"
     values = column.drop_nulls().sort()
     position = (values.len().cast(pl.Float64) - 1) * q
     below = position.floor()
-    t = position - below
     last = values.len().cast(pl.Int64) - 1
-    a = values.gather(below.cast(pl.Int64))
-    b = values.gather((below.cast(pl.Int64) + 1).clip(upper_bound=last))
+    # numpy at the last value (q=1, or one value) takes it twice with weight position + 1,
+    # which gives the sign of a zero as numpy gives it (-0.0 alone stays -0.0; else 0.0)
+    at_end = position >= last.cast(pl.Float64)
+    t = pl.when(at_end).then(position + 1).otherwise(position - below)
+    # no values: missing; get (not gather) gives one value in a window, as a reduction
+    a = values.get(below.cast(pl.Int64), null_on_oob=True)
+    b = values.get((below.cast(pl.Int64) + 1).clip(upper_bound=last), null_on_oob=True)
     return pl.when(t >= 0.5).then(b - (b - a) * (1 - t)).otherwise(a + (b - a) * t)
 """
 

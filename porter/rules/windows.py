@@ -18,6 +18,7 @@ from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.elementwise import _checked, body_expression, function_value
 from porter.rules.groupby import agg_expr
+from porter.rules.io_options import QUANTILE_FUNCTION
 from porter.translate import handover
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_of, derive, derived_column, select_columns,
@@ -218,7 +219,8 @@ def group_transform(call: PandasCall, ctx: RuleContext) -> Value:
         if call.const("interpolation", None, "linear", kinds=(str,)) != "linear" or not 0 <= q <= 1:
             raise Unsupported("quantile with another interpolation or outside 0..1")
         _numeric(column, ctx)
-        expr = column.code.method("quantile", q, "linear")
+        # numpy's interpolation to the last bit and the sign of a zero (pandas_quantile)
+        expr = emit.call(QUANTILE_FUNCTION, column.code, q)
         return derived_column(column, _window(grouped, expr), dtype="float")
     if isinstance(function, Opaque) and not function.is_const:
         return _transform_function(call, grouped, column, function, ctx)

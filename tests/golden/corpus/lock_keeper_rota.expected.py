@@ -14,6 +14,26 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+
+def pandas_quantile(column, q):
+    """The q quantile of the column's values as pandas computes it (numpy's linear
+    interpolation a + (b - a) * t, to the last binary digit and the sign of a zero: Polars'
+    quantile can be one digit off, which moves a value sitting on a bin's edge into the next
+    bin, and returns -0.0 where numpy's sum gives 0.0)."""
+    values = column.drop_nulls().sort()
+    position = (values.len().cast(pl.Float64) - 1) * q
+    below = position.floor()
+    last = values.len().cast(pl.Int64) - 1
+    # numpy at the last value (q=1, or one value) takes it twice with weight position + 1,
+    # which gives the sign of a zero as numpy gives it (-0.0 alone stays -0.0; else 0.0)
+    at_end = position >= last.cast(pl.Float64)
+    t = pl.when(at_end).then(position + 1).otherwise(position - below)
+    # no values: missing; get (not gather) gives one value in a window, as a reduction
+    a = values.get(below.cast(pl.Int64), null_on_oob=True)
+    b = values.get((below.cast(pl.Int64) + 1).clip(upper_bound=last), null_on_oob=True)
+    return pl.when(t >= 0.5).then(b - (b - a) * (1 - t)).otherwise(a + (b - a) * t)
+
+
 # Integer columns as pandas' to_csv writes them: one holding a missing value is float in
 # pandas (2024.0), one without stays integer (2024).
 PANDAS_CSV_INTS = (
@@ -153,17 +173,14 @@ print(
         rota.select("hours", "boats_per_hour")
         .select(
             pl.lit("25%").alias("index"),
-            pl.selectors.numeric().quantile(0.25, "linear"),
+            pandas_quantile(pl.selectors.numeric(), 0.25),
         ),
         rota.select("hours", "boats_per_hour")
-        .select(
-            pl.lit("50%").alias("index"),
-            pl.selectors.numeric().quantile(0.5, "linear"),
-        ),
+        .select(pl.lit("50%").alias("index"), pandas_quantile(pl.selectors.numeric(), 0.5)),
         rota.select("hours", "boats_per_hour")
         .select(
             pl.lit("75%").alias("index"),
-            pl.selectors.numeric().quantile(0.75, "linear"),
+            pandas_quantile(pl.selectors.numeric(), 0.75),
         ),
         rota.select("hours", "boats_per_hour")
         .select(

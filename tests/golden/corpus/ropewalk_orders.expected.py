@@ -119,6 +119,25 @@ def pandas_to_datetime(text, coerce):
     return read(pl.coalesce(guessed if coerce else [*guessed, text]), not coerce)
 
 
+def pandas_quantile(column, q):
+    """The q quantile of the column's values as pandas computes it (numpy's linear
+    interpolation a + (b - a) * t, to the last binary digit and the sign of a zero: Polars'
+    quantile can be one digit off, which moves a value sitting on a bin's edge into the next
+    bin, and returns -0.0 where numpy's sum gives 0.0)."""
+    values = column.drop_nulls().sort()
+    position = (values.len().cast(pl.Float64) - 1) * q
+    below = position.floor()
+    last = values.len().cast(pl.Int64) - 1
+    # numpy at the last value (q=1, or one value) takes it twice with weight position + 1,
+    # which gives the sign of a zero as numpy gives it (-0.0 alone stays -0.0; else 0.0)
+    at_end = position >= last.cast(pl.Float64)
+    t = pl.when(at_end).then(position + 1).otherwise(position - below)
+    # no values: missing; get (not gather) gives one value in a window, as a reduction
+    a = values.get(below.cast(pl.Int64), null_on_oob=True)
+    b = values.get((below.cast(pl.Int64) + 1).clip(upper_bound=last), null_on_oob=True)
+    return pl.when(t >= 0.5).then(b - (b - a) * (1 - t)).otherwise(a + (b - a) * t)
+
+
 def pandas_div(numerator, divisor):
     """numerator / divisor, each value divided as pandas divides it: Polars multiplies by the
     reciprocal of a single divisor, which can be one binary digit off the quotient (and a later
@@ -403,17 +422,14 @@ print(
         priced.select("metres", "kg", "metres_per_kg")
         .select(
             pl.lit("25%").alias("index"),
-            pl.selectors.numeric().quantile(0.25, "linear"),
+            pandas_quantile(pl.selectors.numeric(), 0.25),
         ),
         priced.select("metres", "kg", "metres_per_kg")
-        .select(
-            pl.lit("50%").alias("index"),
-            pl.selectors.numeric().quantile(0.5, "linear"),
-        ),
+        .select(pl.lit("50%").alias("index"), pandas_quantile(pl.selectors.numeric(), 0.5)),
         priced.select("metres", "kg", "metres_per_kg")
         .select(
             pl.lit("75%").alias("index"),
-            pl.selectors.numeric().quantile(0.75, "linear"),
+            pandas_quantile(pl.selectors.numeric(), 0.75),
         ),
         priced.select("metres", "kg", "metres_per_kg")
         .select(
