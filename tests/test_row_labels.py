@@ -264,3 +264,39 @@ count = int(mask.sum())
 df["big"] = mask
 result = df[~mask]
 """, "result", "labels", "count")
+
+
+@pytest.mark.parametrize("body", [
+    # the script's own functions read the labels of the frame they are given: a filtered or
+    # sorted frame passed to them holds pandas' labels
+    'pos = df[df["cars"] > 5]\nby_fare = df.sort_values("fare", ascending=False)\n'
+    'def save(d, name):\n    d.to_csv(name)\n'
+    'save(pos, "pos.csv")\nsave(by_fare, "fare.csv")\nsave(df, "all.csv")\n'
+    'result = [open(n).read() for n in ("pos.csv", "fare.csv", "all.csv")]\n',
+    'pos = df[df["cars"] > 5]\ndef top(d):\n    return d["cars"].idxmax()\nresult = [top(pos), top(df)]\n',
+    'pos = df[df["cars"] > 5]\ndef labels(d):\n    e = d[d["fare"] < 6]\n    return list(e.index)\nresult = labels(pos)\n',
+    # through a chain of helpers, and with a frame the statement does not name
+    'pos = df[df["cars"] > 5]\ndef inner(d):\n    return d.index.tolist()\n'
+    'def outer(d):\n    return inner(d)\nresult = outer(pos)\n',
+    'def save(d, name):\n    d.to_csv(name)\nfor leg in ["north", "south"]:\n'
+    '    save(df[df["leg"] == leg], leg + ".csv")\n'
+    'result = open("north.csv").read() + open("south.csv").read()\n',
+    # the frame is also read by pandas elsewhere (.at on a label)
+    'pos = df[df["cars"] > 5]\ndef show(d):\n    return d.index.tolist()\nx = pos.at[5, "boat"]\n'
+    'result = [show(pos), x]\n',
+])
+def test_labels_read_inside_the_scripts_own_functions(body: str) -> None:
+    differential(HEAD + body)
+
+
+@pytest.mark.parametrize("body", [
+    # the function filters or sorts, and the labels of what it returns are read: it stays
+    # pandas code (its body had been ported to Polars and was then called with a pandas frame)
+    'def heavy(d, lim=5):\n    return d[d["cars"] > lim]\na = heavy(df)\nresult = list(a.index)\n',
+    'def heavy(d, lim=5):\n    return d[d["cars"] > lim]\na = heavy(df)\nb = heavy(df, 10)\n'
+    'result = [a.reset_index(), b]\n',
+    'def load():\n    return pd.read_csv("crossings.csv").sort_values("cars")\nx = load()\n'
+    'result = list(x.index)\n',
+])
+def test_labels_of_what_the_scripts_own_function_returns(body: str) -> None:
+    differential(HEAD + body)

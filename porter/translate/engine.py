@@ -112,6 +112,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     for _ in range(10):
         services.call_sites = {}
         services.labels_needed = set()
+        services.label_functions, services.pandas_functions = set(), set()
         services.consumers, services.frame_parents = {}, {}
         services.applied_functions, services.applied_kinds = {}, {}
         walker = _Walker(services, facts, emit_code=False)
@@ -124,15 +125,21 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     # label read found in one pass can make an earlier statement pandas' in the next, back
     # along a chain of filters and column assignments, until no new one is found (each pass
     # finds one more statement or stops, so there are never more passes than lines).
-    for _ in range(module.code.count("\n") + 1 if services.labels_needed else 0):
+    # A function whose result's labels are read becomes pandas' (pandas_functions), and a
+    # frame made by pandas passed to a function keeps it from taking Polars frames: what the
+    # functions take is learnt again after each pass.
+    for _ in range(module.code.count("\n") + 1
+                   if services.labels_needed or services.label_functions else 0):
         labels_before = set(services.labels_needed)
         services.call_sites = {}
         services.consumers, services.frame_parents = {}, {}
         services.applied_functions, services.applied_kinds = {}, {}
         walker = _Walker(services, facts, emit_code=False)
         walker.block(module.body, _initial_env(facts), module.default_indent, "")
-        if services.labels_needed == labels_before:
+        updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values)
+        if services.labels_needed == labels_before and updated == services.functions:
             break
+        services.functions = updated
 
     services.collect_at = plans_to_collect(services.consumers, services.frame_parents)
     services.call_sites = {}
@@ -271,6 +278,16 @@ class _Walker:
         if ported_where_applied(stmt, self.services) \
                 and self.services.applied_kinds.get(stmt.name.value, {"group"}) == {"group"}:
             return marked_as_applied(stmt)  # its pandas body is no longer run: left as written
+        if stmt.name.value in self.services.pandas_functions:
+            # pandas code reads the row labels of what it returns: it stays pandas code, as
+            # written (Engine.made_by_pandas), and its callers hand it pandas frames
+            line, _ = self.services.position(stmt.name)
+            site = SiteDraft("frame.labels", "handover", "todo", 0.0,
+                             f"pandas code reads the row labels of what {stmt.name.value} returns, "
+                             "the original row numbers after a filter or sort: it stays pandas "
+                             "code", line, line)
+            self.record((site,))
+            return stmt.with_changes(leading_lines=[*stmt.leading_lines, *_todo_comments([site], stmt)])
         function = self.services.functions.get(stmt.name.value)
         local = dict(env)
         for param in (*stmt.params.posonly_params, *stmt.params.params, *stmt.params.kwonly_params):
@@ -294,9 +311,9 @@ class _Walker:
             else:
                 local.pop(name, None)
         outer = self.function
-        self.function = stmt.name.value
+        self.function = self.services.function_at_hand = stmt.name.value
         body, _ = self.indented(stmt.body, local, unit, indent)
-        self.function = outer
+        self.function = self.services.function_at_hand = outer
         return stmt.with_changes(body=body)
 
     def if_stmt(self, stmt: cst.If, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
@@ -436,10 +453,9 @@ class _Walker:
         for name in held:
             value = env[name]
             if isinstance(value, Frame):
-                if not value.labels_intact and not value.index and value.binding is not None:
-                    # the code in the `try` may read the labels a filter left: the next pass
-                    # has pandas make the frame where it is named
-                    self.services.labels_needed.add(value.binding)
+                # the code in the `try` may read the labels a filter left: the next pass has
+                # pandas make the frame where it is named
+                Evaluator(env, self.services).note_labels_read(value)
                 lines += self.hand_over_expressions_of(name, env, stmt)
                 self.note_handed_over(name, value)
             lines.append(f"{name} = {handover.to_pandas(value).text}")
@@ -1061,7 +1077,19 @@ class _Walker:
         mask, `m = df["a"] > 0; pos = df[m]`) is computed by pandas first, in its name. None
         when the statement reads something else porter made (an expression of another frame)
         or a frame whose own labels are already renumbered."""
-        read = [n for n in _names_read(self.services.code_for(expr)) if n in env]
+        names = _names_read(self.services.code_for(expr))
+        ported = [n for n in names if n not in env and n in self.services.functions
+                  and (self.services.functions[n].frame_params
+                       or isinstance(self.services.functions[n].returns, Frame))]
+        if ported:
+            # the script's own function made the frame, its body ported to Polars: when its
+            # body reads no frame of the script's, the next pass leaves it pandas code, which
+            # pandas runs here (its result an unknown value)
+            if any(not self.runs_on_its_own(n, env) for n in ported):
+                return None
+            self.services.pandas_functions.update(ported)
+            return None
+        read = [n for n in names if n in env]
         frames = [n for n in read if isinstance(env[n], Frame)]
         # the frames such a Series is an expression of, named or not in the statement
         frames += [o for o in dict.fromkeys(env[n].frame.code.text for n in read  # type: ignore[union-attr]
@@ -1077,8 +1105,7 @@ class _Walker:
             # its own rows were filtered or sorted before: the next pass has pandas make that
             # frame too, back to one whose labels are 0..n-1
             for n in renumbered:
-                if env[n].binding is not None:  # type: ignore[union-attr]
-                    self.services.labels_needed.add(env[n].binding)  # type: ignore[union-attr]
+                Evaluator(env, self.services).note_labels_read(env[n])  # type: ignore[arg-type]
             return None
         lines = []
         for n in frames:
@@ -1103,6 +1130,23 @@ class _Walker:
                          message=f"made by pandas with `{name}`, for its row labels")
                  if x.status == "converted" else x for x in value.sites]
         return "\n".join(lines), [*sites, site]
+
+    def runs_on_its_own(self, function: str, env: dict[str, Value]) -> bool:
+        """Whether the body of the script's function `function` reads nothing porter changes
+        outside it (a frame or Series of the script's, another of its functions), so that it
+        can stay pandas code as written (services.pandas_functions)."""
+        definition = self.services.function_defs.get(function)
+        if definition is None:
+            return False
+        params = {p.name.value for p in (*definition.params.posonly_params, *definition.params.params,
+                                         *definition.params.kwonly_params)}
+        for name in _names_read(self.services.code_for(definition.body)):
+            if name in params:
+                continue
+            if name in self.services.functions or is_pandas(env.get(name)) \
+                    or isinstance(env.get(name), PandasValue):
+                return False
+        return True
 
     def series_of_its_own(self, name: str, value: Column) -> tuple[Code, Column]:
         """`s = df.select(...)`: the Series keeps its values when `df` is filtered later; it is
@@ -1144,6 +1188,8 @@ class _Walker:
             before = before.frame if isinstance(before, Column) else before
             if isinstance(before, Frame) and before.binding is not None:
                 self.services.labels_needed.add(before.binding)
+            elif isinstance(before, Frame) and self.function is not None:
+                self.services.label_functions.add(self.function)  # a frame it was given
         if isinstance(value, Frame) and isinstance(source, cst.Name) and source.value != name \
                 and self.changed_later(name, source.value):
             # `view = df` and one of them changed in place: both names are one object in

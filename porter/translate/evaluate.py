@@ -113,6 +113,14 @@ class Services:
     # frames bound to a name whose row labels pandas code reads later (`pos.index`) after a
     # filter or sort made them other than 0..n-1: the next pass has pandas make them
     labels_needed: set[int] = field(default_factory=set)
+    # the script's function whose body is being walked, and the functions whose bodies read
+    # the row labels of a frame they were given (`def save(d): d.to_csv(name)`, `d.index`): a
+    # frame passed to them is a label read at the call (kept over all passes: it only grows)
+    function_at_hand: str | None = None
+    label_functions: set[str] = field(default_factory=set)
+    # functions whose result's row labels are read where they are called (`a = heavy(h)`,
+    # `a.index`): pandas runs them, so their bodies stay pandas code (functions.learn_functions)
+    pandas_functions: set[str] = field(default_factory=set)
     statement_lines: tuple[int, int] = (0, 0)  # lines of the statement being rewritten
     # whether a node is glued to the word before it (`if(`, `not(`): its rewrite needs parentheses
     glued: Callable[[cst.CSTNode], bool] = lambda node: False
@@ -378,8 +386,13 @@ class Evaluator:
         """pandas code reads this frame's row labels: when a filter or sort made them other
         than 0..n-1 and the frame is bound to a name, pandas makes it (engine.bind), so the
         labels are pandas' own."""
-        if not frame.labels_intact and not frame.index and frame.binding is not None:
+        if frame.labels_intact or frame.index:
+            return
+        if frame.binding is not None:
             self.services.labels_needed.add(frame.binding)
+        elif self.services.function_at_hand is not None:
+            # a frame the function was given (or made from one): its labels are the caller's
+            self.services.label_functions.add(self.services.function_at_hand)
 
     def rows_without_labels(self, call: PandasCall) -> bool:
         """df.apply(f, axis=1) whose function reads its row only by column (row["kg"],
@@ -610,6 +623,14 @@ class Evaluator:
         if args is None:
             return self.generic(node)
         positional, keywords = args
+        if function.name in self.services.label_functions:
+            # its body reads the row labels of a frame it is given: so does the call. A frame
+            # no statement names, filtered or sorted on the way (`save(df[df.k == "a"])`), is
+            # made by pandas in the call, and the function takes pandas frames there
+            positional = tuple(self._labels_given(value, arg.value) for arg, value in
+                               zip([a for a in node.args if a.keyword is None], positional))
+            keywords = {arg.keyword.value: self._labels_given(keywords[arg.keyword.value], arg.value)
+                        for arg in node.args if arg.keyword is not None}
         self.services.call_sites.setdefault(function.name, []).append(
             tuple(positional) + tuple(keywords.values()))
         parts: list[str] = []
@@ -663,6 +684,19 @@ class Evaluator:
         if isinstance(function.returns, Column | Scalar):
             return PandasValue(code, sites=tuple(sites))
         return Opaque(code, sites=tuple(sites))
+
+    def _labels_given(self, value: Value, node: cst.BaseExpression) -> Value:
+        """A value given to a function that reads the row labels of what it is given (see
+        call_local): pandas makes it, when a filter or sort on the way made them other than
+        0..n-1 and no statement names it; a frame in a name is made by pandas where it is
+        named (engine.bind)."""
+        self.note_handed_over(value)
+        frame = value if isinstance(value, Frame) else value.frame if isinstance(value, Column) else None
+        if frame is None or frame.labels_intact or frame.index or \
+                (isinstance(value, Column) and value.binding is not None) or \
+                (isinstance(value, Frame) and value.code.text.isidentifier()):
+            return value
+        return self.handed_to_unknown(value, node)
 
     def _eval_IfExp(self, node: cst.IfExp) -> Value:
         test = self.eval(node.test)

@@ -163,6 +163,8 @@ def learn_functions(services: Services, returns: dict[str, list[Value]],
             kinds = [c[i] if i < len(c) else None for c in calls]
             if param in function.mutated_params:
                 continue  # the caller's frame changes: it is handed to pandas at each call
+            if name in services.pandas_functions:
+                continue  # pandas code reads its result's row labels: it runs on pandas frames
             if kinds and all(isinstance(k, Frame) for k in kinds):
                 frame_params.add(param)
                 shapes = {(k.columns, tuple(sorted(k.dtypes))) for k in kinds}  # type: ignore[union-attr]
@@ -199,6 +201,8 @@ def learn_functions(services: Services, returns: dict[str, list[Value]],
                 and next(iter(of)) in frame_params:
             returns_column_of = next(iter(of))
         template: Value | None = None
+        if name in services.pandas_functions:
+            returned = []  # its body stays pandas code: what it returns is not known
         if returned and all(isinstance(r, Frame) for r in returned):
             shapes = {(r.columns, tuple(sorted(r.dtypes)), r.index) for r in returned}  # type: ignore[union-attr]
             columns, dtypes, index = shapes.pop() if len(shapes) == 1 else (None, (), ())
