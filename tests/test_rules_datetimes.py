@@ -986,3 +986,25 @@ def test_the_std_of_durations_is_a_todo(tmp_path, monkeypatch):
     result = convert(DURATION_COLUMNS.replace('"k,', '"') + 'spread = t["dur"].std()\n',
                      data_dir=str(tmp_path))
     assert any(s.key == "series.std" for s in result.todos)
+
+
+# -- parts of datetimes with NaT are float in pandas: their text is "2023.0" --------------------
+
+PARTS = '''
+import pandas as pd
+df = pd.DataFrame({"id": [1, 2, 3, 4], "day": ["2023-01-05", None, "2023-02-30", "2023-12-31"]})
+df["day"] = pd.to_datetime(df["day"], format="%Y-%m-%d", errors="coerce")
+full = df.dropna(subset=["day"]).reset_index(drop=True)
+'''
+
+
+@pytest.mark.parametrize("expr", [
+    'df["day"].dt.year.astype(str)', '"m" + df["day"].dt.month.astype(str)',
+    'df["day"].dt.quarter.astype(str).str.zfill(4)', 'df["day"].dt.day.map(lambda v: f"d{v}")',
+    'full["day"].dt.year.astype(str)', 'full["day"].dt.month.map(lambda v: str(v))',
+])
+def test_text_of_datetime_parts_follows_pandas_float_when_nat(expr: str) -> None:
+    # pandas: dt.year of a column holding NaT is float64 (2023.0), int32 without NaT (2023)
+    frame = "full" if expr.startswith("full") else "df"
+    result = differential(PARTS + f'{frame}["out"] = {expr}\nresult = {frame}\n')
+    assert not result.todos, result.converted_text

@@ -672,3 +672,35 @@ def test_str_methods_of_a_category_column_read_its_values(method: str) -> None:
                  'df = pd.DataFrame({"c": ["red", None, "blue", "red", "grün"]})\n'
                  'df["c"] = df["c"].astype("category")\n'
                  f'df["r"] = df["c"].{method}\nresult = df\n')
+
+
+# -- lengths of text with a missing value are float in pandas: their text is "7.0" --------------
+
+LENGTHS = '''
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"berth": ["quay 7b", None, "dock one", "x"], "full": ["ab", "c", "", "def"],
+                   "x": [1, 2, 3, 4]})
+'''
+
+
+@pytest.mark.parametrize("expr", [
+    'df["berth"].str.len().astype(str)', 'df["berth"].str.len().astype(str).str.zfill(3)',
+    '"n=" + df["berth"].str.len().astype(str)', 'df["berth"].str.len().astype("string")',
+    'df["berth"].str.len().map(lambda v: str(v))', 'df["berth"].str.len().apply(lambda v: f"{v}!")',
+    # no missing value: integers, written "2"
+    'df["full"].str.len().astype(str).str.zfill(3)', 'df["full"].str.len().map(lambda v: f"<{v}>")',
+])
+def test_text_of_lengths_follows_pandas_float_when_a_value_is_missing(expr: str) -> None:
+    # pandas: str.len() of text with a missing value is float64, so astype(str) gives "7.0"
+    # (zfill(3) leaves it) and str(v) gives "7.0" and "nan"; without one it is int64: "7"
+    result = differential(LENGTHS + f'df["out"] = {expr}\nresult = df\n')
+    assert not result.todos, result.converted_text
+
+
+def test_text_of_lengths_with_nullable_integers_in_the_script_is_flagged() -> None:
+    # pandas' nullable Int64 writes 7 where a plain integer column with a missing value
+    # (float) writes 7.0: porter does not tell them apart, and says so
+    result = convert(LENGTHS + 'df["q"] = df["x"].astype("Int64")\n'
+                     'df["out"] = df["berth"].str.len().astype(str)\n')
+    assert any(s.confidence <= 0.9 and "nullable" in s.message for s in result.sites)

@@ -762,8 +762,9 @@ def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
 def astype(call: PandasCall, ctx: RuleContext) -> Value:
     """astype(int / float / str / bool / "category") -> cast.
 
-    Handles: bool to text writes True/False like pandas; numbers to bool count missing values
-    as True (NaN is truthy in pandas).
+    Handles: bool to text writes True/False like pandas; integers to text write "7.0" where
+    the column holds a missing value (float in pandas), decided over the whole column at run
+    time; numbers to bool count missing values as True (NaN is truthy in pandas).
     Caveats: pandas raises when casting missing values to int; Polars keeps them missing.
     """
     ctx.reject_unknown(call, "dtype", positional=1)
@@ -827,6 +828,25 @@ def to_numeric(call: PandasCall, ctx: RuleContext) -> Value:
     return derived_column(column, code.method("fill_nan", None), dtype="float")
 
 
+def int_text(column: Column, code: Code, ctx: RuleContext) -> Code:
+    """An integer column as pandas' astype(str) writes it: pandas holds one that has a missing
+    value (str.len() of text with a blank, dt.year with NaT, a read with a blank) as floats,
+    "7.0"; decided over the whole column at run time, as PANDAS_CSV_INTS decides it for
+    to_csv. A missing value stays missing in both."""
+    as_text = code.method("cast", emit.atom("pl.String"))
+    if ctx.nullable_ints_possible:
+        ctx.lower("the script uses pandas' nullable integers, which porter does not tell from "
+                  "plain ones: an integer column holding a missing value is written \"7\" as a "
+                  "nullable one is; a plain one is float in pandas (\"7.0\")", 0.9)
+        return as_text
+    if not column.frame.labels_intact:
+        ctx.lower("rows were filtered or sorted before: an integer column that held a missing "
+                  "value is still float in pandas (\"7.0\") after the row is left out; here its "
+                  "text follows the rows left (\"7\")", 0.95)
+    as_float_text = code.method("cast", emit.atom("pl.Float64")).method("cast", emit.atom("pl.String"))
+    return emit.when(emit.binop(code.method("null_count"), ">", 0), as_float_text, as_text)
+
+
 def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, str]:
     polars, kind = polars_dtype(target)
     code = column.code.method("fill_null", False) if column.null_is_false else column.code
@@ -840,6 +860,8 @@ def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, st
     if kind == "str" and column.dtype == "float":
         ctx.lower("a float below 0.0001 is written 1e-05 by Python (pandas), 0.00001 or 1e-5 "
                   "by Polars", 0.95)
+    if kind == "str" and column.dtype == "int" and not column.element:
+        return int_text(column, code, ctx), "str"
     if kind == "str" and column.dtype == "datetime":
         # "2024-01-31" when every time is midnight, as pandas writes the column
         return datetime_text(code), "str"

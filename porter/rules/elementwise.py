@@ -316,7 +316,8 @@ def element_cast(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: str() of a boolean is True/False, of a missing value "nan", of a datetime
     "2024-01-05 00:00:00" (microseconds only when there are some) and of NaT "NaT", as Python
-    writes them.
+    writes them; an integer column holding a missing value reaches str() as floats ("7.0",
+    "nan"), decided over the whole column at run time.
     Caveats: Python writes some floats differently (1e-05, Polars 0.00001) (0.85).
     """
     element = _element(call)
@@ -335,9 +336,14 @@ def element_cast(call: PandasCall, ctx: RuleContext) -> Value:
         if element.dtype in (None, "float"):
             ctx.lower("Python's str() writes some floats (1e-05) and, without the column type, "
                       "booleans (True) and dates differently from Polars' text", 0.85)
+        if element.dtype == "int":
+            # pandas holds an integer column with a missing value as floats: str() writes
+            # "7.0", and "nan" for the missing value (decided over the whole column)
+            from porter.rules.assign import int_text
+            code = int_text(element, element.code, ctx).method("fill_null", "nan")
+            return _value(element, code, dtype="str")
         code = element.code if element.dtype == "str" else element.code.method("cast", emit.atom("pl.String"))
-        if element.dtype != "int":  # a missing value reaches str() as NaN: "nan"
-            code = code.method("fill_null", "nan")
+        code = code.method("fill_null", "nan")  # a missing value reaches str() as NaN: "nan"
         return _value(element, code, dtype="str")
     target = {"int": "pl.Int64", "float": "pl.Float64"}[call.name]
     if call.name == "int":
