@@ -97,13 +97,52 @@ def sort_args(by: list[Any], ascending: Any, na_position: str) -> dict[str, obje
     return kwargs
 
 
+def pandas_order(frame: Frame, column: Code, dtype: str | None, ascending: Any, na_position: str,
+                 kind: Any, ctx: RuleContext, name: Code | None = None) -> Code:
+    """frame.sort(...) by one column in the order pandas gives its rows.
+
+    pandas' single-key sort_values is numpy's argsort with kind="quicksort" (pandas'
+    nargsort): for numbers, True/False and dates it is not stable, so tied rows come out in an
+    order of numpy's (head() and drop_duplicates() after it then keep other rows). The frame
+    is then sorted by pandas_sort_values (written once into the script), which places each
+    row where numpy's argsort of the values, as pandas holds them, puts it.
+    kind="stable"/"mergesort", and text (pandas 3 sorts its Arrow strings stably), keep
+    Polars' stable sort, which is pandas' order there (by `name`, the column's name, when
+    given)."""
+    if isinstance(ascending, (list, tuple)):
+        if len(ascending) != 1:
+            raise Unsupported("ascending and by have different lengths")
+        ascending = ascending[0]
+    if na_position not in ("first", "last"):
+        raise Unsupported(f"na_position={na_position!r} (pandas raises)")
+    if kind not in ("quicksort", "stable", "mergesort", "heapsort", None):
+        raise Unsupported(f"kind={kind!r}")
+    if kind in ("stable", "mergesort") or dtype == "str":
+        return frame.code.method("sort", name or column, **sort_args([None], ascending, na_position))
+    if dtype in ("category", "enum") or kind == "heapsort":
+        ctx.lower("pandas sorts this column with numpy's unstable "
+                  + ("heapsort" if kind == "heapsort" else "quicksort of the category codes")
+                  + ": tied rows may come out in another order", 0.9)
+        return frame.code.method("sort", name or column, **sort_args([None], ascending, na_position))
+    from porter.rules.io_options import SORT_FUNCTION
+    options: dict[str, object] = {}
+    if not ascending:
+        options["descending"] = True
+    if na_position == "first":
+        options["nulls_last"] = False
+    return frame.code.method("pipe", emit.atom(SORT_FUNCTION), name or column, **options)
+
+
 @rule("frame.sort_values")
 def sort_values(call: PandasCall, ctx: RuleContext) -> Value:
     """df.sort_values(by, ascending, na_position) -> .sort(..., nulls_last=True, maintain_order=True).
 
-    Handles: missing values last (also when descending); a list for `ascending`; ties keep
-    their order (pandas' single-key default sort is not stable, so porter's is stricter).
-    Caveats: key= callables are TODOs.
+    Handles: missing values last (also when descending); a list for `ascending`; several
+    keys keep tied rows in order (pandas' lexsort is stable); one key of numbers, True/False
+    or dates orders tied rows as pandas' unstable quicksort does (pandas_sort_values), one text
+    key is sorted stably as pandas 3 sorts it.
+    Caveats: key= callables are TODOs; one category key or kind="heapsort" keep the stable
+    order (0.9).
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
@@ -112,24 +151,27 @@ def sort_values(call: PandasCall, ctx: RuleContext) -> Value:
     by = column_names(by, "by")
     ascending = call.const("ascending", None, True)
     na_position = call.const("na_position", None, "last")
-    code = frame.code.method("sort", emit.names_arg(by), **sort_args(by, ascending, na_position))
     kind = call.const("kind", None, "quicksort")
-    if len(by) == 1 and kind not in ("stable", "mergesort"):
-        ctx.lower("pandas' default single-key sort may order ties differently", 0.97)
+    if len(by) == 1:
+        code = pandas_order(frame, emit.col(by[0]), frame.dtype(by[0]), ascending, na_position,
+                            kind, ctx, name=emit.names_arg(by))
+    else:
+        code = frame.code.method("sort", emit.names_arg(by), **sort_args(by, ascending, na_position))
     return derive(frame, code, same_rows=False, labels_intact=bool(call.const("ignore_index", None, False)))
 
 
 @rule("series.sort_values")
 def series_sort_values(call: PandasCall, ctx: RuleContext) -> Value:
-    """s.sort_values() -> the column of the frame sorted by it."""
+    """s.sort_values() -> the column of the frame sorted by it, in pandas' order (as
+    frame.sort_values by one column)."""
     column = call.receiver
     assert isinstance(column, Column)
     ctx.reject_unknown(call, "ascending", "na_position", "kind", "ignore_index")
     frame = column.frame
-    ascending = call.const("ascending", None, True)
-    kwargs = sort_args([column.name], ascending, call.const("na_position", None, "last"))
-    sorted_frame = derive(frame, frame.code.method("sort", column.code, **kwargs), same_rows=False)
-    ctx.lower("pandas' default sort may order ties differently", 0.97)
+    code = pandas_order(frame, column.code, column.dtype, call.const("ascending", None, True),
+                        call.const("na_position", None, "last"),
+                        call.const("kind", None, "quicksort"), ctx)
+    sorted_frame = derive(frame, code, same_rows=False)
     return Column(column.code, frame=sorted_frame, name=column.name, dtype=column.dtype,
                   refs=column.refs, versions=column.versions)
 

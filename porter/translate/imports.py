@@ -15,7 +15,7 @@ from porter.rules.io_options import (
     CSV_DURATIONS_DEFINITION, CSV_INTS_CONSTANT, CSV_INTS_DEFINITION,
     DIVIDE_DEFINITION, DIVIDE_FUNCTION,
     NA_CONSTANT, PANDAS_NA_TOKENS, QUANTILE_DEFINITION, QUANTILE_FUNCTION, ROW_DEFINITION,
-    ROW_FUNCTION,
+    ROW_FUNCTION, SORT_DEFINITION, SORT_FUNCTION,
     UNSTACKED_DEFINITION, UNSTACKED_FUNCTION,
 )
 
@@ -101,6 +101,7 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (UNSTACKED_FUNCTION, UNSTACKED_DEFINITION),
                                  (CATEGORY_COUNTS_FUNCTION, CATEGORY_COUNTS_DEFINITION),
                                  (ROW_FUNCTION, ROW_DEFINITION),
+                                 (SORT_FUNCTION, SORT_DEFINITION),
                                  (GUESS_FUNCTION, GUESS_DEFINITION),
                                  (TEXT_FUNCTION, TEXT_DEFINITION)):
         if function not in used or _defines(module, function):

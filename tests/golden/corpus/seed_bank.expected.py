@@ -11,6 +11,54 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+
+def pandas_sort_values(frame, by, descending=False, nulls_last=True):
+    """The frame sorted by one column (a name or an expression) in the order pandas'
+    sort_values gives: pandas sorts numbers, True/False and dates with numpy's quicksort, which
+    does not keep tied rows in their order (Polars' sort does); missing values (NaN too) come
+    first or last, in their order. Text is sorted stably by pandas, as by Polars."""
+
+    def positions(values):
+        # each row's position in pandas' order
+        if values.dtype.is_float():
+            values = values.fill_nan(None)  # NaN is missing to pandas
+        if not (values.dtype.is_numeric() or values.dtype in (
+                pl.Boolean, pl.Date, pl.Datetime, pl.Duration)):
+            rank = values.rank("ordinal", descending=descending).cast(pl.Int64)
+            missing = values.is_null().cum_sum().cast(pl.Int64)
+            if nulls_last:
+                return rank.fill_null(missing + values.len() - values.null_count())
+            return (rank + values.null_count()).fill_null(missing)
+        import numpy as np
+
+        # the values as pandas holds them: integers with a missing value are floats, and
+        # True/False with a missing value are objects (each is sorted another way by numpy)
+        numbers = values.drop_nulls().to_numpy()
+        if values.dtype.is_integer() and values.has_nulls():
+            numbers = numbers.astype(np.float64)
+        elif values.dtype == pl.Boolean and values.has_nulls():
+            numbers = numbers.astype(object)
+        rows = np.flatnonzero(values.is_not_null().to_numpy())
+        if descending:  # as pandas' nargsort: reversed, sorted, reversed again
+            order = rows[::-1][numbers[::-1].argsort(kind="quicksort")][::-1]
+        else:
+            order = rows[numbers.argsort(kind="quicksort")]
+        missing = np.flatnonzero(values.is_null().to_numpy())
+        order = np.concatenate([order, missing] if nulls_last else [missing, order])
+        key = np.empty(len(order), dtype=np.int64)
+        key[order] = np.arange(len(order))
+        return pl.Series(values.name, key)
+
+    # a column of its own: Polars merges consecutive sorts, and would compute the positions
+    # from the rows before an earlier sort
+    by = pl.col(by) if isinstance(by, str) else by
+    return (
+        frame.with_columns(by.map_batches(positions, return_dtype=pl.Int64).alias("_pandas_order"))
+        .sort("_pandas_order")
+        .drop("_pandas_order")
+    )
+
+
 # Integer columns as pandas' to_csv writes them: one holding a missing value is float in
 # pandas (2024.0), one without stays integer (2024).
 PANDAS_CSV_INTS = (
@@ -75,7 +123,7 @@ def species_summary(tests):
         .sort("species")
     )
     summary = summary.with_columns(rate=pl.col("rate").round(3))
-    return summary.sort("rate", descending=True, nulls_last=True, maintain_order=True)
+    return summary.pipe(pandas_sort_values, "rate", descending=True)
 
 
 tests = add_rates(load_tests("data/germination_tests.csv")).collect().lazy()
