@@ -294,6 +294,24 @@ def test_single_key_sort_orders_ties_as_pandas(expr: str, known: bool, tmp_path,
     differential(f'import pandas as pd\ndf = pd.read_csv("scores.csv")\nresult = {expr}\n', **options)
 
 
+GROUPED_SORTS = [
+    pytest.param('df.groupby("k").size().sort_values(ascending=False).head(10).reset_index(name="n")',
+                 id="group sizes largest first"),
+    pytest.param('df.groupby("k")["v"].sum().sort_values().reset_index()', id="group sums ascending"),
+    pytest.param('df.groupby("k", as_index=False)["v"].sum().sort_values("v", ascending=False).head(15)',
+                 id="frame of group sums"),
+]
+
+
+@pytest.mark.parametrize("expr", GROUPED_SORTS)
+def test_sort_of_group_results_orders_ties_as_pandas(expr: str, tmp_path, monkeypatch) -> None:
+    # 60 groups whose sizes and sums tie often: sorted after the groupby's sorted keys
+    rows = [((i * 2654435761) % 2**32) for i in range(400)]
+    (tmp_path / "g.csv").write_text("k,v\n" + "".join(f"{r % 60},{(r >> 8) % 5}\n" for r in rows))
+    monkeypatch.chdir(tmp_path)
+    differential(f'import pandas as pd\ndf = pd.read_csv("g.csv")\nresult = {expr}\n')
+
+
 def test_sort_by_dates_orders_ties_as_pandas(tmp_path, monkeypatch) -> None:
     # pandas sorts datetime64 values with numpy's quicksort too (another tie order than for ints)
     (tmp_path / "scores.csv").write_text(_ties_csv())
