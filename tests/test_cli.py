@@ -38,7 +38,7 @@ def test_convert_to_file_and_report(script, tmp_path, capsys):
     out_file, report = tmp_path / "out.py", tmp_path / "report.json"
     assert main(["convert", str(script), "-o", str(out_file), "--report", str(report), "-q"]) == 0
     assert capsys.readouterr() == ("", "")
-    assert "sort(\"kg\"" in out_file.read_text()
+    assert "pipe(pandas_sort_values, \"kg\")" in out_file.read_text()
     data = json.loads(report.read_text())
     (entry,) = data["files"]
     assert entry["source"] == str(script) and entry["output"] == str(out_file)
