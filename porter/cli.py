@@ -8,6 +8,7 @@ import importlib.util
 import json
 import os
 from pathlib import Path
+import shutil
 import sys
 from typing import TextIO
 
@@ -103,14 +104,16 @@ def build_parser() -> argparse.ArgumentParser:
     verify.add_argument("original", help="the pandas script")
     verify.add_argument("converted", nargs="?",
                         help="the converted script (default: convert ORIGINAL in memory)")
-    verify.add_argument("--data", metavar="DIR", required=True,
-                        help="the folder the script runs in (copied; never written)")
+    verify.add_argument("--data", metavar="DIR", default=None,
+                        help="the folder the script runs in (copied; never written); without "
+                             "it, porter makes the CSV files the script reads from the script "
+                             "itself and runs randomised trials on them")
     _verify_options(verify)
     trials = verify.add_argument_group("randomised trials")
     trials.add_argument("--trials", type=_count, default=0, metavar="K",
                         help="after the sample, run both scripts on K datasets drawn from it "
                              "(missing values, ties, duplicates, rounding halves, tiny tables); "
-                             "at the first disagreement, shrink it and write the data to a folder")
+                             "each kind of disagreement is shrunk and its data written to a folder")
     trials.add_argument("--seed", type=int, default=0,
                         help="the trials' seed: the same seed draws the same datasets (default 0)")
     trials.add_argument("--trials-out", metavar="DIR", default=None,
@@ -269,6 +272,8 @@ def main(argv: list[str] | None = None) -> int:
                 if not path.is_file():
                     raise ConversionError("no such file", args.converted)
                 converted = path.read_text(encoding="utf-8")
+            if args.data is None:
+                return _verify_without_data(args, converted)
             return run_verify(args, args.original, converted,
                               args.converted or "(converted in memory)", sys.stdout)
     except ConversionError as exc:
@@ -442,9 +447,45 @@ def _run_verify(args: argparse.Namespace, original: str, converted: str | None, 
         report["trials"] = trials.to_json()
     if args.json:
         _write(Path(args.json), json.dumps(report, indent=2) + "\n")
-    if result.verdict == "same" and (trials is None or trials.disagreement is None):
+    if result.verdict == "same" and (trials is None or not trials.disagreements):
         return EXIT_OK, result
     return (EXIT_USAGE if result.verdict == "error" else EXIT_TODO), result
+
+
+def _verify_without_data(args: argparse.Namespace, converted: str | None) -> int:
+    """`porter verify SCRIPT` with no --data: the inputs made from the script, then trials."""
+    import tempfile
+    from porter.api import convert_source
+    from porter.model import Options
+    from porter.verify.synthesize import synthesize_checked
+    original = Path(args.original)
+    if not original.is_file():
+        raise ConversionError("no such script", args.original)
+    text = original.read_text(encoding="utf-8")
+    if converted is None:  # the conversion `porter convert` gives without --data
+        converted = convert_source(text, path=str(original), options=Options()).converted_text
+    out = Path(args.trials_out) if args.trials_out else Path.cwd()
+    if not out.is_dir():
+        raise ConversionError("no such folder", str(out))
+    with tempfile.TemporaryDirectory(prefix="porter-sample-") as work:
+        sample = Path(work) / "sample"
+        sizes = synthesize_checked(original, sample, seed=args.seed)
+        made = ", ".join(f"{path} ({rows} rows)" for path, rows in sizes.items())
+        print(f"porter: no --data: made {made} from the script", file=sys.stderr)
+        args.data = str(sample)
+        if not args.trials:
+            args.trials = 10
+        code, result = _run_verify(args, args.original, converted,
+                                   args.converted or "(converted in memory)", sys.stdout)
+        if result.verdict != "same":  # keep the sample that shows it
+            kept = out / f"porter-sample-{args.seed}"
+            if kept.exists():
+                shutil.rmtree(kept)
+            shutil.copytree(sample, kept)
+            print(f"  the sample porter made is kept in {kept}; show it again with:\n"
+                  f"    porter verify {args.original}"
+                  + (f" {args.converted}" if args.converted else "") + f" --data {kept}")
+    return code
 
 
 def _run_trials(args: argparse.Namespace, original: str, converted: str | None, options,

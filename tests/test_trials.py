@@ -38,12 +38,13 @@ def test_the_sample_alone_does_not_show_the_broken_conversions(broken):
 def test_trials_catch_each_broken_conversion_and_keep_the_smallest_data(broken, tmp_path):
     result = run_trials(ORIGINAL, _text(broken), FIXTURES,
                         TrialOptions(trials=12, seed=0, shrink_runs=10, out=tmp_path))
-    found = result.disagreement
-    assert found is not None, [t.verdict for t in result.trials]
-    assert result.trials[-1].verdict in ("different", "error")
+    assert result.disagreements, [t.verdict for t in result.trials]
+    found = result.disagreements[0]
+    assert len(result.trials) == 12  # every trial runs
+    assert result.trials[found.trial - 1].verdict in ("different", "error")
     assert found.outputs and {o.comparison.status for o in found.outputs} == {"different"}
     # the folder holds the data that shows it again, smaller than the trial's own
-    assert sum(found.rows.values()) <= result.trials[-1].rows["data/landings.csv"]
+    assert sum(found.rows.values()) <= result.trials[found.trial - 1].rows["data/landings.csv"]
     again = verify(ORIGINAL, _text(broken), found.folder)
     assert again.verdict == "different"
     assert found.command.endswith(f"--data {found.folder}")
@@ -55,7 +56,7 @@ def test_faithful_conversions_agree_on_every_trial():
                                options=Options(data_dir=str(FIXTURES))).converted_text
     for text in (_text("landings_polars.py"), converted):
         result = run_trials(ORIGINAL, text, FIXTURES, TrialOptions(trials=8, seed=3))
-        assert result.disagreement is None, result.to_json()
+        assert not result.disagreements, result.to_json()
         assert result.agreed + result.skipped == 8
         assert result.varied == ("data/landings.csv",)
 
@@ -78,5 +79,5 @@ def test_the_command_line_reports_trials_in_the_json(tmp_path, capsys):
     assert code == 1
     assert "DISAGREEMENT" in out and "porter verify" in out
     trials = json.loads(report.read_text())["trials"]
-    assert trials["seed"] == 0 and trials["disagreement"]["outputs"]
-    assert Path(trials["disagreement"]["folder"]).parent == tmp_path
+    assert trials["seed"] == 0 and trials["disagreements"][0]["outputs"]
+    assert Path(trials["disagreements"][0]["folder"]).parent == tmp_path

@@ -14,9 +14,11 @@ datasets made from the sample in `--data`, seeded and reproducible (`--seed`):
 - files that are not CSV are copied as they are (and named in the result).
 
 A trial on which the original script itself fails tells nothing about the conversion and is
-counted as skipped. At the first trial where the outputs differ, or the conversion fails where
-the original runs, porter shrinks that trial's data (drops rows while the disagreement stays),
-writes the smallest dataset to a folder and gives the one command that shows it again.
+counted as skipped. Every trial runs. Where the outputs differ, or the conversion fails where
+the original runs, porter takes the first trial of each kind of disagreement (which outputs
+differ; the conversion failing), at most three kinds, shrinks its data (drops rows while the
+same disagreement stays), writes the smallest dataset to a folder and gives the one command
+that shows it again.
 """
 
 from __future__ import annotations
@@ -48,7 +50,8 @@ class TrialOptions:
     trials: int = 20
     seed: int = 0
     max_rows: int = 30
-    shrink_runs: int = 40  # verification runs the shrinking may take at most
+    shrink_runs: int = 24  # verification runs the shrinking of one disagreement may take
+    kinds: int = 3  # disagreements of different kinds shrunk and kept, at most
     out: Path | None = None  # where the smallest disagreeing dataset goes (default: the cwd)
 
 
@@ -83,7 +86,7 @@ class TrialsResult:
     trials: tuple[Trial, ...]
     varied: tuple[str, ...]  # the CSV files each trial draws again
     copied: tuple[str, ...]  # other files, copied as they are
-    disagreement: Disagreement | None = None
+    disagreements: tuple[Disagreement, ...] = ()
 
     @property
     def agreed(self) -> int:
@@ -98,7 +101,7 @@ class TrialsResult:
                 "skipped": self.skipped, "varied": list(self.varied), "copied": list(self.copied),
                 "trials": [{"trial": t.number, "rows": t.rows, "verdict": t.verdict,
                             "detail": t.detail} for t in self.trials],
-                "disagreement": None if self.disagreement is None else self.disagreement.to_json()}
+                "disagreements": [d.to_json() for d in self.disagreements]}
 
 
 # --- the sample's tables --------------------------------------------------------------------
@@ -255,6 +258,8 @@ def run_trials(original: str | Path, converted_text: str, data_dir: str | Path,
             tables.append(table)
     say = progress or (lambda _: None)
     trials: list[Trial] = []
+    found: list[Disagreement] = []
+    kinds: set[object] = set()
     work = Path(tempfile.mkdtemp(prefix="porter-trials-"))
     try:
         for number in range(1, options.trials + 1):
@@ -264,6 +269,7 @@ def run_trials(original: str | Path, converted_text: str, data_dir: str | Path,
             drawn = {t.path: _draw(t, rnd, options.max_rows, missing, awkward) for t in tables}
             folder = _dataset(data, tables, drawn, work / f"trial-{number}")
             result = verify(original, converted_text, folder, verify_options)
+            shutil.rmtree(folder, ignore_errors=True)
             rows = {path: len(r) for path, r in drawn.items()}
             if result.original.exit_code != 0:
                 trial = Trial(number, rows, "skipped", "the original script fails on this data")
@@ -272,16 +278,15 @@ def run_trials(original: str | Path, converted_text: str, data_dir: str | Path,
             trials.append(trial)
             say(f"trial {number}/{options.trials}: {trial.verdict}"
                 + (f" ({trial.detail})" if trial.detail else ""))
-            if _disagrees(result):
-                disagreement = _shrink(original, converted_text, data, tables, drawn, result,
-                                       number, options, verify_options, work, say,
-                                       converted_path)
-                return TrialsResult(options.seed, tuple(trials), tuple(t.path for t in tables),
-                                    tuple(copied), disagreement)
-            shutil.rmtree(folder, ignore_errors=True)
+            if _disagrees(result) and _kind(result) not in kinds and len(kinds) < options.kinds:
+                kinds.add(_kind(result))
+                found.append(_shrink(original, converted_text, data, tables, drawn, result,
+                                     number, options, verify_options, work, say,
+                                     converted_path))
     finally:
         shutil.rmtree(work, ignore_errors=True)
-    return TrialsResult(options.seed, tuple(trials), tuple(t.path for t in tables), tuple(copied))
+    return TrialsResult(options.seed, tuple(trials), tuple(t.path for t in tables), tuple(copied),
+                        tuple(found))
 
 
 def _summary(result: VerifyResult) -> str:
@@ -350,18 +355,21 @@ def render(trials: TrialsResult) -> str:
         lines.append(f"  copied as they are (not varied): {', '.join(trials.copied)}")
     if not trials.varied:
         lines.append("  no CSV file to vary: every trial ran on the sample as it is")
-    d = trials.disagreement
-    if d is None:
-        return "\n".join(lines)
-    rows = ", ".join(f"{path} {n} rows" for path, n in d.rows.items())
-    lines += [f"  DISAGREEMENT on trial {d.trial}; the smallest data found ({rows}) is in",
-              f"    {d.folder}", f"  show it again with:", f"    {d.command}"]
-    for o in d.outputs:
-        lines.append(f"  {o.name}: {o.comparison.status} {o.comparison.detail}".rstrip())
-        for row, a, b in o.comparison.first_rows[:3]:
-            lines.append(f"      row {row}: original  {a}")
-            lines.append(f"      {' ' * len(str(row))}     converted {b}")
-    if d.converted_stderr:
-        lines.append("  the converted script failed; last lines of its stderr:")
-        lines += ["    " + line for line in d.converted_stderr.splitlines()[-8:]]
+    disagreeing = sum(t.verdict not in ("same", "same-unordered", "skipped")
+                      for t in trials.trials)
+    if disagreeing:
+        lines.append(f"  {disagreeing} trial(s) disagreed; {len(trials.disagreements)} kind(s) "
+                     "of disagreement, each shrunk to the smallest data found:")
+    for d in trials.disagreements:
+        rows = ", ".join(f"{path} {n} rows" for path, n in d.rows.items())
+        lines += [f"  DISAGREEMENT first seen on trial {d.trial}; the smallest data ({rows}) "
+                  f"is in", f"    {d.folder}", "  show it again with:", f"    {d.command}"]
+        for o in d.outputs:
+            lines.append(f"  {o.name}: {o.comparison.status} {o.comparison.detail}".rstrip())
+            for row, a, b in o.comparison.first_rows[:3]:
+                lines.append(f"      row {row}: original  {a}")
+                lines.append(f"      {' ' * len(str(row))}     converted {b}")
+        if d.converted_stderr:
+            lines.append("  the converted script failed; last lines of its stderr:")
+            lines += ["    " + line for line in d.converted_stderr.splitlines()[-8:]]
     return "\n".join(lines)
