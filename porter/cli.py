@@ -92,6 +92,7 @@ def build_parser() -> argparse.ArgumentParser:
     folder.add_argument("--max-size", type=_size, default=DEFAULT_MAX_SIZE, metavar="SIZE",
                         help="files larger than this fail (default 2MB)")
     _verify_options(review, outputs=False)
+    _trial_options(review)
     review.set_defaults(fail_on_todo=None, keep=False)
 
     verify = commands.add_parser(
@@ -109,15 +110,7 @@ def build_parser() -> argparse.ArgumentParser:
                              "it, porter makes the CSV files the script reads from the script "
                              "itself and runs randomised trials on them")
     _verify_options(verify)
-    trials = verify.add_argument_group("randomised trials")
-    trials.add_argument("--trials", type=_count, default=0, metavar="K",
-                        help="after the sample, run both scripts on K datasets drawn from it "
-                             "(missing values, ties, duplicates, rounding halves, tiny tables); "
-                             "each kind of disagreement is shrunk and its data written to a folder")
-    trials.add_argument("--seed", type=int, default=0,
-                        help="the trials' seed: the same seed draws the same datasets (default 0)")
-    trials.add_argument("--trials-out", metavar="DIR", default=None,
-                        help="where the smallest disagreeing dataset is written (default: here)")
+    _trial_options(verify)
     _debug_option(verify)
 
     scan = commands.add_parser(
@@ -175,6 +168,18 @@ def _analysis_options(parser: argparse.ArgumentParser) -> None:
                         help="files larger than this fail (default 2MB)")
     folder.add_argument("--shard", type=_shard, default=None, metavar="K/N",
                         help="process only the K-th of N slices of the sorted file list")
+
+
+def _trial_options(parser: argparse.ArgumentParser) -> None:
+    trials = parser.add_argument_group("randomised trials")
+    trials.add_argument("--trials", type=_count, default=0, metavar="K",
+                        help="after the sample, run both scripts on K datasets drawn from it "
+                             "(missing values, ties, duplicates, rounding halves, tiny tables); "
+                             "each kind of disagreement is shrunk and its data written to a folder")
+    trials.add_argument("--seed", type=int, default=0,
+                        help="the trials' seed: the same seed draws the same datasets (default 0)")
+    trials.add_argument("--trials-out", metavar="DIR", default=None,
+                        help="where the smallest disagreeing dataset is written (default: here)")
 
 
 def _verify_options(parser: argparse.ArgumentParser, outputs: bool = True) -> None:
@@ -408,7 +413,8 @@ def review_command(args: argparse.Namespace) -> int:
                                      rtol=args.rtol, ignore_order=args.ignore_order,
                                      timing_runs=args.timing_runs),
         jobs=args.jobs, excludes=tuple(args.exclude), max_size=args.max_size, title=args.title,
-        progress=not args.quiet))
+        progress=not args.quiet, trials=args.trials, seed=args.seed,
+        trials_out=args.trials_out))
     _write(Path(args.output), done.html)
     if not args.quiet:
         todos = sum(len(r.todos) for r in done.results)

@@ -81,3 +81,16 @@ def test_the_command_line_reports_trials_in_the_json(tmp_path, capsys):
     trials = json.loads(report.read_text())["trials"]
     assert trials["seed"] == 0 and trials["disagreements"][0]["outputs"]
     assert Path(trials["disagreements"][0]["folder"]).parent == tmp_path
+
+
+def test_the_review_page_shows_each_scripts_trials(tmp_path):
+    from porter.review.run import ReviewOptions, review
+    from porter.model import Options
+    from porter.verify.api import VerifyOptions
+    done = review(str(ORIGINAL), ReviewOptions(
+        options=Options(data_dir=str(FIXTURES)), verify=True,
+        verify_options=VerifyOptions(timing_runs=0), trials=2, seed=4, trials_out=str(tmp_path)))
+    assert "Randomised trials" in done.html
+    assert "porter trials (seed 4): 2 of 2 agreed" in done.html
+    with pytest.raises(Exception, match="--trials needs --verify"):
+        review(str(ORIGINAL), ReviewOptions(options=Options(data_dir=str(FIXTURES)), trials=2))

@@ -18,6 +18,7 @@ from porter.mapping import MappingTable, load_table
 from porter.model import FileResult, Site
 from porter.reports import folder_report
 from porter.verify.model import VerifyResult
+from porter.verify.trials import TrialsResult, render as render_trials
 from porter.verify.text import speed_claim, time_range, what_is_measured
 
 RowKind = Literal["equal", "replace", "insert", "delete"]
@@ -149,6 +150,7 @@ class VerdictView:
     notes: list[str]
     measured: str = ""  # what the time and memory columns are, and how many runs
     speed: str | None = None  # the speed claim, with the runs it rests on
+    trials: str | None = None  # the randomised trials, as `porter verify --trials` prints them
 
 
 @dataclass
@@ -447,7 +449,7 @@ def _blocks(result: FileResult, sites: list[SiteView], file_id: str, ids: _Ids,
     return [block], todos
 
 
-def verdict_view(result: VerifyResult) -> VerdictView:
+def verdict_view(result: VerifyResult, trials: TrialsResult | None = None) -> VerdictView:
     outputs = []
     for out in result.outputs:
         data = out.to_json()
@@ -461,12 +463,14 @@ def verdict_view(result: VerifyResult) -> VerdictView:
                            time_range(run), run.capture_s)
 
     return VerdictView(result.verdict, outputs, side(result.original), side(result.converted),
-                       list(result.notes), what_is_measured(result), speed_claim(result))
+                       list(result.notes), what_is_measured(result), speed_claim(result),
+                       render_trials(trials) if trials is not None else None)
 
 
 def build_page(results: list[FileResult], *, verdicts: dict[str, VerifyResult] | None = None,
                title: str = "porter review", low: float = DEFAULT_LOW, folder: bool | None = None,
-               table: MappingTable | None = None, context: int = CONTEXT) -> Page:
+               table: MappingTable | None = None, context: int = CONTEXT,
+               trials: dict[str, TrialsResult] | None = None) -> Page:
     """The page model. Totals and per-file counts are the JSON report's (`folder_report`)."""
     table = table or load_table()
     verdicts = verdicts or {}
@@ -484,7 +488,8 @@ def build_page(results: list[FileResult], *, verdicts: dict[str, VerifyResult] |
         files.append(FileView(
             id=file_id, source=result.source, output=result.output, status=result.status,
             error=result.error, summary=entry["summary"], blocks=blocks, sites=sites, todos=todos,
-            verdict=verdict_view(verdict) if verdict is not None else None))
+            verdict=verdict_view(verdict, (trials or {}).get(result.source))
+            if verdict is not None else None))
         all_todos += todos
     summary = report["summary"]
     assert isinstance(summary, dict)

@@ -19,6 +19,7 @@ from porter.mapping import MappingTable
 from porter.model import FileResult
 from porter.review.model import CONTEXT, DEFAULT_LOW, Page, SiteView, build_page
 from porter.verify.model import VerifyResult
+from porter.verify.trials import TrialsResult
 
 PYGMENTS_STYLE = "friendly"
 
@@ -119,8 +120,9 @@ def _by_number(sides) -> dict[int, Markup]:  # type: ignore[no-untyped-def]
 def render_review(results: list[FileResult], *, verdicts: dict[str, VerifyResult] | None = None,
                   title: str = "porter review", low: float = DEFAULT_LOW,
                   folder: bool | None = None, table: MappingTable | None = None,
-                  context: int = CONTEXT) -> str:
-    """One self-contained HTML page reviewing `results` (and their verdicts, by source)."""
+                  context: int = CONTEXT, trials: dict[str, TrialsResult] | None = None) -> str:
+    """One self-contained HTML page reviewing `results` (and their verdicts and randomised
+    trials, by source)."""
     page = build_page(results, verdicts=verdicts, title=title, low=low, folder=folder,
-                      table=table, context=context)
+                      table=table, context=context, trials=trials)
     return render_page(page)

@@ -25,6 +25,9 @@ class ReviewOptions:
     max_size: int = DEFAULT_MAX_SIZE
     title: str | None = None
     progress: bool = False
+    trials: int = 0  # with verify: randomised trials per script (porter.verify.trials)
+    seed: int = 0
+    trials_out: str | None = None
 
 
 @dataclass
@@ -33,6 +36,7 @@ class Review:
     results: list[FileResult]
     verdicts: dict[str, VerifyResult] = field(default_factory=dict)
     notes: list[str] = field(default_factory=list)
+    trials: dict[str, object] = field(default_factory=dict)  # TrialsResult by source
 
 
 def verify_results(results: list[FileResult], data_dir: str,
@@ -54,6 +58,8 @@ def review(src: str, options: ReviewOptions = ReviewOptions()) -> Review:
         raise ConversionError("no such folder", data_dir)
     if options.verify and data_dir is None:
         raise ConversionError("--verify needs --data DIR (the folder the scripts run in)")
+    if options.trials and not options.verify:
+        raise ConversionError("--trials needs --verify (the trials run the scripts)")
     notes: list[str] = []
     if path.is_dir():
         batch = run_batch([src], BatchOptions(
@@ -63,6 +69,22 @@ def review(src: str, options: ReviewOptions = ReviewOptions()) -> Review:
     else:
         results, folder = [convert_file(src, options=options.options)], False
     verdicts = verify_results(results, data_dir, options.verify_options) if options.verify else {}
+    trials = trial_results(results, data_dir, options) if options.verify and options.trials else {}
     title = options.title or f"porter review of {src}"
-    html = render_review(results, verdicts=verdicts, title=title, low=options.low, folder=folder)
-    return Review(html, results, verdicts, notes)
+    html = render_review(results, verdicts=verdicts, title=title, low=options.low, folder=folder,
+                         trials=trials)
+    return Review(html, results, verdicts, notes, trials)  # type: ignore[arg-type]
+
+
+def trial_results(results: list[FileResult], data_dir: str, options: ReviewOptions) -> dict:
+    """The randomised trials of every converted script, by source (runs the scripts)."""
+    from porter.verify.trials import TrialOptions, run_trials
+    out = Path(options.trials_out) if options.trials_out else None
+    found = {}
+    for result in results:
+        if result.status == "converted" and result.converted_text:
+            found[result.source] = run_trials(
+                result.source, result.converted_text, data_dir,
+                TrialOptions(trials=options.trials, seed=options.seed, out=out),
+                options.verify_options)  # type: ignore[arg-type]
+    return found
