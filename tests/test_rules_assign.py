@@ -487,3 +487,28 @@ h["load"] = h.apply(load, axis=1)
 h["double"] = h["load"] * 2
 ''', "h")
     assert "pl.Series(h" in result.converted_text  # not the whole frame kept on pandas
+
+
+def test_astype_str_of_split_lists_writes_pythons_text_of_each_list():
+    # pandas: ['ash', 'celadon'] (str of the list); Polars refused to cast a list to text
+    result = differential('''
+import pandas as pd
+df = pd.DataFrame({"id": [1, 2, 3, 4], "glazes": ["ash;celadon", None, "shino", "it's;tenmoku"]})
+df["parts"] = df["glazes"].str.split(";")
+df["as_text"] = df["parts"].astype(str)
+df["n"] = df["as_text"].str.len()
+''', "df")
+    assert "astype" not in result.converted_text
+
+
+def test_a_categorical_of_numbers_keeps_the_frame_on_pandas():
+    # pl.Series of a pandas Categorical of ints is plain Int64: value_counts then orders ties
+    # by first appearance, pandas by the categories' order, and .cat fails
+    result = differential('''
+import pandas as pd
+h = pd.DataFrame({"trip": [1, 2, 3, 4, 5], "crew": [4, 3, 4, 3, 1]})
+h["crew_c"] = h["crew"].astype("category")
+vc = h["crew_c"].value_counts()
+first = h["crew_c"].cat.categories[0]
+''', "vc", "first")
+    assert "pl.Series(h" not in result.converted_text

@@ -4,6 +4,7 @@ df.loc[mask, "c"] = ..., del df["c"]."""
 from __future__ import annotations
 
 import ast
+import re
 from collections.abc import Iterable
 from dataclasses import replace
 
@@ -21,7 +22,7 @@ from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
     with_column_updates,
 )
-from porter.rules.strings import LIST_STR, expanded_columns
+from porter.rules.strings import LIST_STR, expanded_columns, list_repr
 from porter.translate.handover import makes_periods, orders_categories, text_categories
 from porter.translate.values import (
     MISSING, Column, Frame, Opaque, PandasValue, Parts, Scalar, Value, fresh_token,
@@ -118,6 +119,11 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
             # pandas, which pl.Series refuses or turns into text
             raise Unsupported("pandas makes a mixed (object) column here, which has no Polars "
                               "type: " + FRAME_STAYS_PANDAS)
+        if re.search(r"""\.astype\((["'])category\1\)""", value.code.text):
+            # a Categorical of numbers (text categories are ported): pl.Series makes it plain
+            # integers, which lose its categories' order and the .cat accessor
+            raise Unsupported("pandas' Categorical of numbers has no Polars type (Polars' "
+                              "Categorical holds text): " + FRAME_STAYS_PANDAS)
         if makes_periods(value.code.text):
             # from_pandas keeps Period values as an extension column no cast or sort takes
             raise Unsupported("pandas' Period values have no Polars type: the frame stays pandas")
@@ -683,7 +689,7 @@ def set_columns(call: PandasCall, ctx: RuleContext) -> Value:
             code = frame.code.method("rename", emit.call("dict", emit.call("zip", old_names, value.code)))
             ctx.lower("new names are computed at run time", 0.9)
             return derive(frame, code, same_rows=True, columns=None, dtypes=(), column_pairs=(),
-                          int_labels_except=None)
+                          int_labels_except=None, columns_name=None)
         raise Unsupported("new column names from a pandas value")
     new = [str(v) for v in value.const]
     if len(set(new)) != len(new):
@@ -701,10 +707,10 @@ def set_columns(call: PandasCall, ctx: RuleContext) -> Value:
         kinds = tuple((n, k) for o, n in zip(frame.columns, [mapping.get(c, c) for c in frame.columns])
                       if (k := frame.dtype(o)))
         return derive(frame, code, same_rows=True, columns=tuple(mapping.get(c, c) for c in frame.columns),
-                      dtypes=kinds, column_pairs=(), int_labels_except=None)
+                      dtypes=kinds, column_pairs=(), int_labels_except=None, columns_name=None)
     code = frame.code.method("rename", emit.call("dict", emit.call("zip", old_names, new)))
     return derive(frame, code, same_rows=True, columns=(*frame.index, *new) if frame.index else tuple(new),
-                  dtypes=(), column_pairs=(), int_labels_except=None)
+                  dtypes=(), column_pairs=(), int_labels_except=None, columns_name=None)
 
 
 @rule("frame.columns.name")
@@ -720,7 +726,7 @@ def set_columns_name(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("a name for the columns: pandas prints it and melt names the variable "
                           "column after it; Polars columns have no name (pass var_name= to "
                           "unpivot)")
-    return frame
+    return replace(frame, columns_name=None)  # melt calls its variable column "variable" again
 
 
 _ARRAYS = ("series.values", "series.to_numpy", "frame.values", "frame.to_numpy")
@@ -860,6 +866,11 @@ def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, st
     if kind == "str" and column.dtype == "float":
         ctx.lower("a float below 0.0001 is written 1e-05 by Python (pandas), 0.00001 or 1e-5 "
                   "by Polars", 0.95)
+    if kind == "str" and column.dtype == LIST_STR:
+        # pandas writes each list as Python's str(list) does: ['ash', 'celadon']
+        return list_repr(code), "str"
+    if kind == "str" and column.dtype is not None and column.dtype.startswith("list["):
+        raise Unsupported("astype(str) of lists other than lists of text (Python's str(list))")
     if kind == "str" and column.dtype == "int" and not column.element:
         return int_text(column, code, ctx), "str"
     if kind == "str" and column.dtype == "datetime":
