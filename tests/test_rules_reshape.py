@@ -264,9 +264,34 @@ def test_melt_of_a_crosstab_names_the_variable_after_its_columns_axis() -> None:
     # pandas' crosstab names its columns axis "kind": melt calls the variable column "kind"
     source = FRAME + ('t = pd.crosstab(df["shop"], df["kind"]).reset_index()\n'
                       'result = t.melt(id_vars="shop", value_vars=["p", "q"])\n')
-    site = next(s for s in convert(source).sites if s.key == "frame.melt")
-    assert site.confidence <= 0.95 and "columns.name" in site.message
-    differential(source.replace('value_vars=["p", "q"]', 'value_vars=["p", "q"], var_name="kind"'))
+    result = differential(source)
+    assert not result.todos, result.converted_text
+    assert "columns.name" not in next(s for s in result.sites if s.key == "frame.melt").message
+
+
+_PIVOTED = 'w = df.pivot_table(index="shop", columns="kind", values="n", aggfunc="sum")'
+
+
+@pytest.mark.parametrize("lines", [
+    # pivot_table, unstack (ported) and reset_index keep the columns' name "kind"
+    f'{_PIVOTED}.reset_index()\nresult = w.melt(id_vars="shop")',
+    f'{_PIVOTED}\nw = w.reset_index()\nresult = w.melt(id_vars="shop", value_name="kg")',
+    'w = df.groupby(["shop", "kind"])["n"].sum().unstack().reset_index()\n'
+    'result = pd.melt(w, id_vars=["shop"])',
+    'w = df.groupby(["shop", "kind"]).size().unstack(fill_value=0).reset_index()\n'
+    'w["t"] = 1\nw = w.fillna(0)\nresult = w.melt(id_vars="shop")',
+    f'{_PIVOTED}.reset_index()\nw = w[w["p"] > 1].rename(columns={{"p": "pp"}})\n'
+    'result = w.melt(id_vars="shop")',
+    # where pandas drops the name: "variable" again
+    f'{_PIVOTED}.reset_index()\nw = w.rename_axis(columns=None)\nresult = w.melt(id_vars="shop")',
+    f'{_PIVOTED}.reset_index()\nw.columns.name = None\nresult = w.melt(id_vars="shop")',
+    f'{_PIVOTED}.reset_index()\nw.columns = ["shop", "a", "b", "c"]\nresult = w.melt(id_vars="shop")',
+    f'{_PIVOTED}.reset_index()\nw = w.merge(df[["shop", "size"]].drop_duplicates("shop"), '
+    'on="shop")\nresult = w.melt(id_vars="shop")',
+])
+def test_melt_of_a_pivoted_table_names_the_variable_as_pandas_does(lines: str) -> None:
+    result = differential(FRAME + lines + "\n")
+    assert not result.todos, result.converted_text
 
 
 def test_melt_without_value_vars_reads_the_columns_at_run_time() -> None:

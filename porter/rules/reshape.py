@@ -321,12 +321,14 @@ def melt(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: pandas' rows (every row of the first value column, then of the second, ...: Polars
     unpivots piece by piece, so the rows are numbered first and sorted by column position then
     row); columns named variable and value (var_name / value_name); value columns of ints and
-    floats give floats in both; value_vars left out means every other column (when known).
+    floats give floats in both; value_vars left out means every other column (when known);
+    without var_name, the variable column of a pivoted table (pivot_table, crosstab, unstack,
+    reset_index() or not) is named after its columns' name, as pandas names it.
     Caveats: value columns mixing text, numbers or booleans (pandas keeps each value as it is,
     an object column; Polars casts them to one type) are TODOs, and lower the confidence when
     their types are unknown; without var_name, a frame whose columns porter does not know may
-    carry a columns.name (a crosstab or pivot_table result), which pandas uses instead of
-    "variable" (0.95); ignore_index=False, col_level, a frame with an index (reset_index()
+    carry a columns.name porter did not follow, which pandas uses instead of "variable"
+    (0.95); ignore_index=False, col_level, a frame with an index (reset_index()
     first) are TODOs. value_vars left out when porter does not know the frame's columns reads
     them from the frame's schema at run time (a frame held in a name; 0.9, the types unknown).
     """
@@ -346,6 +348,10 @@ def melt(call: PandasCall, ctx: RuleContext) -> Value:
     id_vars = _names_or_none(call, "id_vars", 0 + offset) or []
     value_vars = _names_or_none(call, "value_vars", 1 + offset)
     var_name = call.const("var_name", 2 + offset, None, kinds=(str,))
+    if var_name is None and frame.columns_name is not None:
+        # a pivoted table (pivot_table, crosstab, unstack; reset_index keeps it): pandas names
+        # the variable column after the columns' name
+        var_name = frame.columns_name
     if var_name is None and frame.columns is None:
         ctx.lower("pandas names the variable column after the frame's columns.name when it has "
                   "one (a crosstab or pivot_table result, even after reset_index()); porter "

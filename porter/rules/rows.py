@@ -3,6 +3,7 @@ isin, between, replace."""
 
 from __future__ import annotations
 
+from dataclasses import replace
 from typing import Any
 
 from porter.emit import code as emit
@@ -273,7 +274,9 @@ def rename_axis(call: PandasCall, ctx: RuleContext) -> Value:
         if isinstance(receiver, Column) or call.has("mapper") or call.has("index") \
                 or call.const("columns", None, 0) is not None:
             raise ctx.todo("naming the columns: Polars columns have no name")
-        return receiver  # df.rename_axis(columns=None): nothing to do in Polars
+        # df.rename_axis(columns=None): nothing to do in Polars; melt calls its variable
+        # column "variable" again
+        return replace(receiver, columns_name=None)
     if call.const("axis", None, 0) not in (0, "index", "rows"):
         raise ctx.todo("naming the columns: Polars columns have no name")
     names = call.const("index", None) if call.has("index") else call.const("mapper", 0, None)
