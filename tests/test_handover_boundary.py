@@ -948,3 +948,56 @@ try:
 except KeyError:
     picked = "none"
 """, "picked", data_dir=str(tmp_path))
+
+
+@pytest.mark.parametrize("made", [
+    'df.pivot_table(index="berth", columns="kind", values="tons", aggfunc="sum").reset_index()',
+    'df.groupby(["berth", "kind"])["crates"].sum().unstack().reset_index()',
+    'pd.crosstab(df["berth"], df["kind"]).reset_index()',
+])
+def test_a_pivoted_table_reaches_pandas_with_its_columns_name(made: str) -> None:
+    # pandas names the columns of a pivoted table after its key ("kind"), through
+    # reset_index too: a stack kept on pandas names its level after it, not level_1
+    text = differential(f"""
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        wide = {made}
+        long = wide.set_index("berth").stack()
+        result = long.reset_index()
+    """, data_dir=".").converted_text
+    assert 'rename_axis(columns="kind")' in text
+
+
+def test_a_melt_kept_on_pandas_names_its_variable_after_the_pivoted_columns() -> None:
+    text = differential("""
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        wide = df.groupby(["berth", "kind"]).size().unstack(fill_value=0).reset_index()
+        result = wide.fillna(0).melt(id_vars="berth")
+    """, data_dir=".").converted_text
+    assert 'rename_axis(columns="kind")' in text
+
+
+_AGG_LISTS = 'st = df.groupby("berth").agg({"tons": ["sum", "mean"], "crates": ["max"]})\n'
+
+
+@pytest.mark.parametrize("lines", [
+    _AGG_LISTS + 'result = st.stack(level=0).reset_index()',
+    _AGG_LISTS + 'result = st.T.reset_index()',
+    _AGG_LISTS + 'result = st.xs("sum", axis=1, level=1).reset_index()',
+    _AGG_LISTS + 'result = st["tons"].reset_index()',
+    _AGG_LISTS + 'result = st[("tons", "mean")].reset_index()',
+    _AGG_LISTS + 'result = st.droplevel(0, axis=1).reset_index()',
+    _AGG_LISTS + 'st.columns = st.columns.map("_".join)\nresult = st.reset_index()',
+    _AGG_LISTS + 'st = st.reset_index()\nresult = st.droplevel(1, axis=1)',
+    _AGG_LISTS + 'st = st.round(1)\nresult = st.stack(level=0).reset_index()',
+    'st = df.groupby("berth")[["tons"]].agg(["sum", "mean"])\nresult = st.stack().reset_index()',
+    'st = df.groupby(["berth", "kind"]).agg({"tons": ["sum", "mean"]})\n'
+    'result = st.stack(level=0).reset_index()',
+])
+def test_an_aggregation_with_lists_reaches_pandas_with_two_levels_of_columns(lines: str) -> None:
+    # porter names the columns tons_sum, ...; pandas' code kept on pandas reads the two
+    # levels (column, function) pandas made
+    text = differential("import pandas as pd\ndf = pd.read_csv(\"cargo.csv\")\n" + lines + "\n",
+                        data_dir=".").converted_text
+    assert "frame.set_axis(frame.columns.map(" in text

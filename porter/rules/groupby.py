@@ -283,7 +283,9 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
     g["kg"].agg(["sum", "mean"]), g.agg("sum").
 
     Handles: output names as pandas makes them; a dict of lists gives MultiIndex columns in
-    pandas, flattened here to "kg_sum" for every output (documented); g["kg"].agg(total="sum");
+    pandas, flattened here to "kg_sum" for every output (documented), as is a list on a
+    frame's one column (g[["kg"]].agg([...])); handed to pandas, the frame gets its two levels
+    back (handover.to_pandas); g["kg"].agg(total="sum");
     the Python builtins sum / min / max, which pandas 3 calls on each group's values (a
     missing value makes sum NaN; one met first is min and max), and len (the group size).
     """
@@ -333,6 +335,14 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
         columns = target_columns(grouped, ctx)
         if columns is None or len(columns) != 1:
             raise Unsupported("a list of functions over several columns makes MultiIndex columns")
+        if not grouped.single:
+            # g[["kg"]].agg([...]): a frame's columns, (column, function) pairs in pandas
+            for how in spec:
+                add(columns[0], str(how), f"{columns[0]}_{how}")
+            ctx.lower("pandas makes MultiIndex columns here; porter names them column_function", 0.9)
+            result = aggregate(grouped, exprs, names, ctx, dtypes=dtypes)
+            pairs = tuple((f"{columns[0]}_{how}", (columns[0], str(how))) for how in spec)
+            return replace(result, column_pairs=pairs) if isinstance(result, Frame) else result
         for how in spec:
             add(columns[0], str(how), str(how))
         return aggregate(grouped, exprs, names, ctx, dtypes=dtypes)

@@ -64,6 +64,23 @@ def _labels(code: Code, frame: Frame) -> Code:
     return code.method("set_index", keys)
 
 
+def _two_levels(code: Code, frame: Frame) -> Code:
+    """The pandas frame `code` with the (column, function) pairs of an aggregation with lists
+    as its two levels of column labels, as pandas made them (porter names them
+    "column_function"); a column that is not a pair is (name, ""), as pandas labels a column
+    written into such a frame or a key that reset_index brought back."""
+    pairs = dict(frame.column_pairs)
+    names = [c for c in frame.columns if c not in frame.index] if frame.columns is not None \
+        else None
+    if names is not None:
+        labels = emit.render({c: pairs.get(c, (c, "")) for c in names})
+    else:
+        labels = f"lambda c: {emit.render(pairs)}.get(c, (c, \"\"))"
+    # Index.map of pairs makes a MultiIndex (set_axis of a list of tuples would not)
+    return code.method("pipe", emit.atom(
+        f"lambda frame: frame.set_axis(frame.columns.map({labels}), axis=1)"))
+
+
 def _int_labels(texts: tuple[str, ...]) -> Code:
     """The rename that gives the columns a pivot on an integer key made pandas' labels: Polars
     named them by the values as text ("2024"), pandas by the values (2024). Only names that
@@ -99,8 +116,12 @@ def to_pandas(value: Value) -> Code:
         code = _as_pandas_made_them(code, value.dtypes, value.columns)
         if value.index:
             code = _labels(code, value)
-            if value.columns_name is not None:
-                code = code.method("rename_axis", columns=value.columns_name)
+        if value.columns_name is not None:
+            # a pivoted table's columns are named after its key (pandas keeps the name through
+            # reset_index): stack, melt and print read it
+            code = code.method("rename_axis", columns=value.columns_name)
+        if value.column_pairs:
+            code = _two_levels(code, value)
         labels = [c for c in value.number_labels if c not in value.index
                   and (value.columns is None or c in value.columns)]
         if labels:  # pandas' own labels 0, 1, … are integers
