@@ -989,7 +989,6 @@ _AGG_LISTS = 'st = df.groupby("berth").agg({"tons": ["sum", "mean"], "crates": [
     _AGG_LISTS + 'result = st[("tons", "mean")].reset_index()',
     _AGG_LISTS + 'result = st.droplevel(0, axis=1).reset_index()',
     _AGG_LISTS + 'st.columns = st.columns.map("_".join)\nresult = st.reset_index()',
-    _AGG_LISTS + 'st = st.reset_index()\nresult = st.droplevel(1, axis=1)',
     _AGG_LISTS + 'st = st.round(1)\nresult = st.stack(level=0).reset_index()',
     'st = df.groupby("berth")[["tons"]].agg(["sum", "mean"])\nresult = st.stack().reset_index()',
     'st = df.groupby(["berth", "kind"]).agg({"tons": ["sum", "mean"]})\n'
