@@ -439,6 +439,9 @@ def _run_verify(args: argparse.Namespace, original: str, converted: str | None, 
                 stream: TextIO):  # type: ignore[no-untyped-def]
     from porter.verify.api import VerifyOptions, verify
     from porter.verify.text import kept_folders, render
+    trials_out = getattr(args, "trials_out", None)
+    if trials_out and not Path(trials_out).is_dir():  # said before anything runs
+        raise ConversionError("no such folder (--trials-out)", trials_out)
     options = VerifyOptions(timeout=args.timeout, memory_mib=args.memory_limit, rtol=args.rtol,
                             ignore_order=args.ignore_order, keep=args.keep,
                             timing_runs=args.timing_runs)
@@ -483,6 +486,10 @@ def _verify_without_data(args: argparse.Namespace, converted: str | None) -> int
             args.trials = 10
         code, result = _run_verify(args, args.original, converted,
                                    args.converted or "(converted in memory)", sys.stdout)
+        if result.original.exit_code != 0:
+            print("  the original script itself fails on the data porter made from it: the "
+                  "code does not tell enough of what its input holds; give the script's "
+                  "folder with --data", file=sys.stdout)
         if result.verdict != "same":  # keep the sample that shows it
             kept = out / f"porter-sample-{args.seed}"
             if kept.exists():

@@ -94,3 +94,18 @@ def test_the_review_page_shows_each_scripts_trials(tmp_path):
     assert "porter trials (seed 4): 2 of 2 agreed" in done.html
     with pytest.raises(Exception, match="--trials needs --verify"):
         review(str(ORIGINAL), ReviewOptions(options=Options(data_dir=str(FIXTURES)), trials=2))
+
+
+def test_trial_folders_inside_the_data_folder_are_neither_copied_nor_varied(tmp_path):
+    # the default --trials-out is the current folder, often the data folder itself
+    import shutil
+    data = tmp_path / "harbour"
+    shutil.copytree(FIXTURES, data)
+    options = TrialOptions(trials=6, seed=0, shrink_runs=3, kinds=1, out=data)
+    first = run_trials(data / "landings.py", _text("broken_mean.py"), data, options)
+    assert first.disagreements and Path(first.disagreements[0].folder).parent == data
+    kept = Path(first.disagreements[0].folder)
+    assert not any(p.name.startswith("porter-trial-") for p in kept.iterdir())
+    again = run_trials(data / "landings.py", _text("broken_mean.py"), data, options)
+    assert again.varied == ("data/landings.csv",)
+    assert not any("porter-trial-" in c for c in again.copied)

@@ -41,6 +41,9 @@ from porter.verify.model import OutputResult, VerifyResult
 _NUMBER = re.compile(r"^\s*[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?\s*$")
 _INTEGER = re.compile(r"^\s*[+-]?\d+\s*$")
 _ISO_DATE = re.compile(r"^(\d{4})-(\d{2})-(\d{2})(.*)$")
+# a date in another layout (05/01/2024, 5.1.24, 2024/01/05 10:00): its awkward values are
+# its own, since an edit of the text would only make the script's format fail
+_OTHER_DATE = re.compile(r"^\s*\d{1,4}[-/.]\d{1,2}[-/.]\d{1,4}([ T]\d{1,2}:\d{2}.*)?\s*$")
 _SEPARATORS = (",", ";", "\t", "|")
 _MISSING = set(PANDAS_NA_TOKENS)  # text pandas' read_csv reads as a missing value
 
@@ -172,6 +175,8 @@ def _edges(present: list[str], kind: str) -> list[str]:
     edges = []
     for cell in distinct[:6]:
         date = _ISO_DATE.match(cell)
+        if not date and _OTHER_DATE.match(cell):
+            continue
         if date:  # the ends of months and years, in the same layout
             edges += [day + date.group(4)
                       for day in ("2023-12-31", "2024-01-01", "2024-02-29", "2024-03-31")]
@@ -212,10 +217,20 @@ def _write_table(table: _Table, rows: list[list[str]], folder: Path) -> None:
     target.write_text("\n".join(table.head) + "\n" + out.getvalue(), encoding="utf-8")
 
 
+# what porter itself leaves in a folder: the data of trials and samples, never an input
+_OWN_FOLDERS = ("porter-trial-*", "porter-sample-*")
+
+
+def _own(path: Path, data: Path) -> bool:
+    return any(part.startswith(("porter-trial-", "porter-sample-"))
+               for part in path.relative_to(data).parts)
+
+
 def _dataset(data: Path, tables: list[_Table], drawn: dict[str, list[list[str]]],
              folder: Path) -> Path:
-    """A copy of the data folder with the varied tables written over their files."""
-    shutil.copytree(data, folder)
+    """A copy of the data folder with the varied tables written over their files (porter's
+    own trial folders left out: the copy may be made inside the data folder)."""
+    shutil.copytree(data, folder, ignore=shutil.ignore_patterns(*_OWN_FOLDERS))
     for table in tables:
         _write_table(table, drawn[table.path], folder)
     return folder
@@ -248,7 +263,7 @@ def run_trials(original: str | Path, converted_text: str, data_dir: str | Path,
         raise ConversionError("no such folder (--data is the folder the script runs in)", str(data))
     verify_options = replace(verify_options or VerifyOptions(), timing_runs=0, keep=False)
     tables, copied = [], []
-    for path in sorted(p for p in data.rglob("*") if p.is_file()):
+    for path in sorted(p for p in data.rglob("*") if p.is_file() and not _own(p, data)):
         table = _read_table(data, path) if path.suffix.lower() in (".csv", ".txt", ".tsv") else None
         if table is None and path.suffix != ".py":
             copied.append(str(path.relative_to(data)))
