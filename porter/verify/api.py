@@ -240,5 +240,10 @@ def _first_text_difference(a: Path, b: Path) -> str:
         return "the bytes differ"
     for number, (x, y) in enumerate(zip(left, right), start=1):
         if x != y:
-            return f"line {number} differs: {x[:60]!r} vs {y[:60]!r}"
+            # show where they part: from a little before the first differing character
+            at = next((i for i, (c, d) in enumerate(zip(x, y)) if c != d), min(len(x), len(y)))
+            start = max(0, at - 20)
+            lead = "…" if start else ""
+            return f"line {number} differs at character {at + 1}: " \
+                   f"{lead}{x[start:start + 60]!r} vs {lead}{y[start:start + 60]!r}"
     return f"{len(left)} lines vs {len(right)} lines"
