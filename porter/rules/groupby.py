@@ -284,8 +284,8 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: output names as pandas makes them; a dict of lists gives MultiIndex columns in
     pandas, flattened here to "kg_sum" for every output (documented), as is a list on a
-    frame's one column (g[["kg"]].agg([...])); handed to pandas, the frame gets its two levels
-    back (handover.to_pandas); g["kg"].agg(total="sum");
+    frame's one column (g[["kg"]].agg([...])); handed to pandas with its keys in the index,
+    the frame gets its two levels back (handover.to_pandas); g["kg"].agg(total="sum");
     the Python builtins sum / min / max, which pandas 3 calls on each group's values (a
     missing value makes sum NaN; one met first is min and max), and len (the group size).
     """
