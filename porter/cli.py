@@ -451,7 +451,8 @@ def _run_verify(args: argparse.Namespace, original: str, converted: str | None, 
         print(kept_folders(result), file=stream)
     report = result.to_json()
     trials = None
-    if getattr(args, "trials", 0):
+    if getattr(args, "trials", 0) and result.original.exit_code == 0:
+        # (when the original fails on the sample itself, trials drawn from it tell nothing)
         trials = _run_trials(args, original, converted, options, stream)
         report["trials"] = trials.to_json()
     if args.json:
