@@ -123,17 +123,18 @@ def pandas_quantile(column, q):
     interpolation a + (b - a) * t, to the last binary digit and the sign of a zero: Polars'
     quantile can be one digit off, which moves a value sitting on a bin's edge into the next
     bin, and returns -0.0 where numpy's sum gives 0.0)."""
-    values = column.drop_nulls().sort()
-    position = (values.len().cast(pl.Float64) - 1) * q
-    below = position.floor()
-    last = values.len().cast(pl.Int64) - 1
+    count = column.count()
+    position = (count.cast(pl.Float64) - 1) * q
+    below = position.floor().cast(pl.Int64)
+    last = count.cast(pl.Int64) - 1
     # numpy at the last value (q=1, or one value) takes it twice with weight position + 1,
     # which gives the sign of a zero as numpy gives it (-0.0 alone stays -0.0; else 0.0)
-    at_end = position >= last.cast(pl.Float64)
-    t = pl.when(at_end).then(position + 1).otherwise(position - below)
-    # no values: missing; get (not gather) gives one value in a window, as a reduction
-    a = values.get(below.cast(pl.Int64), null_on_oob=True)
-    b = values.get((below.cast(pl.Int64) + 1).clip(upper_bound=last), null_on_oob=True)
+    t = pl.when(position >= last.cast(pl.Float64)).then(position + 1).otherwise(position - below)
+    # the two values around the position, found by selection (no sort): below it, and above
+    # it (the same value where the position falls on one; numpy takes the next one there,
+    # which changes nothing unless it is infinite)
+    a = column.drop_nulls().quantile(q, "lower")
+    b = column.drop_nulls().quantile(q, "higher")
     return pl.when(t >= 0.5).then(b - (b - a) * (1 - t)).otherwise(a + (b - a) * t)
 
 
