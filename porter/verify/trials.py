@@ -46,6 +46,7 @@ _ISO_DATE = re.compile(r"^(\d{4})-(\d{2})-(\d{2})(.*)$")
 _OTHER_DATE = re.compile(r"^\s*\d{1,4}[-/.]\d{1,2}[-/.]\d{1,4}([ T]\d{1,2}:\d{2}.*)?\s*$")
 _SEPARATORS = (",", ";", "\t", "|")
 _MISSING = set(PANDAS_NA_TOKENS)  # text pandas' read_csv reads as a missing value
+_SAMPLE_ROWS = 10_000  # rows of each file the trials draw from (the first ones)
 
 
 @dataclass(frozen=True)
@@ -142,7 +143,7 @@ def _read_table(root: Path, path: Path) -> _Table | None:
     header = lines[first]
     separator = max(_SEPARATORS, key=header.count)
     width = len(next(csv.reader([header], delimiter=separator)))
-    body = [line for line in lines[first + 1:] if line.strip()]
+    body = [line for line in lines[first + 1:] if line.strip()][:_SAMPLE_ROWS]
     rows = list(csv.reader(body, delimiter=separator))
     if width < 1 or any(len(row) != width for row in rows) or not rows:
         return None
