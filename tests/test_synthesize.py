@@ -58,19 +58,19 @@ def test_columns_get_their_type_from_how_the_script_uses_them(tmp_path):
         SOURCE = "data/crossings.csv"
         trips = pd.read_csv(SOURCE, sep=";")
         trips = trips[trips["route"].isin(["North Sound", "Outer Isles"])]
-        trips["fare"] = trips["adults"] * 4.5 + trips["bikes"]
+        trips["fare"] = trips["adults"] * 4.5 + trips["cars"]
         late = trips[trips["minutes_late"] > 15]
         trips["day"] = pd.to_datetime(trips["sailed"], format="%d/%m/%Y %H:%M").dt.day_name()
         trips["ship"] = trips["ship"].str.title()
         late.groupby("captain")["minutes_late"].mean().to_csv("late.csv")
     ''', tmp_path)
     rows = made["data/crossings.csv"]
-    assert rows and set(rows[0]) == {"route", "adults", "bikes", "minutes_late", "sailed",
+    assert rows and set(rows[0]) == {"route", "adults", "cars", "minutes_late", "sailed",
                                      "ship", "captain"}
     present = [r for r in rows if all(r.values())]
     assert {r["route"] for r in rows} >= {"North Sound", "Outer Isles"}  # the literals
     for r in rows:
-        for number in ("adults", "bikes", "minutes_late"):
+        for number in ("adults", "cars", "minutes_late"):
             assert r[number] == "" or float(r[number]) == float(r[number])
     assert any(r["sailed"][2] == "/" for r in present)  # dates in the script's format
     assert any("" in r.values() for r in rows)  # missing values among them
