@@ -512,3 +512,15 @@ vc = h["crew_c"].value_counts()
 first = h["crew_c"].cat.categories[0]
 ''', "vc", "first")
     assert "pl.Series(h" not in result.converted_text
+
+
+def test_a_nullable_integer_cast_says_what_a_later_hand_over_does():
+    # pandas holds astype("Int64") as a nullable column: 26 and <NA>; handed over from Polars
+    # later it would be float64 (26.0), which porter cannot mark yet: the site says so
+    result = convert('''
+import pandas as pd
+df = pd.DataFrame({"w": [26.0, None]})
+df["week"] = df["w"].astype("Int64")
+''')
+    site = next(s for s in result.sites if s.key == "series.astype")
+    assert site.confidence <= 0.95 and "float64" in site.message

@@ -62,6 +62,9 @@ def _text_labelled(frame: Frame, names: Iterable[str]) -> Frame:
     return replace(frame, int_labels_except=(*kept, *(n for n in names if n not in kept)))
 
 
+_NULLABLE_INTS = {"Int64", "Int32", "Int16", "Int8", "UInt64", "UInt32", "UInt16", "UInt8"}
+
+
 def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str | None]:
     """A value assigned into a column of `frame`: an expression and its dtype."""
     if isinstance(value, Column):
@@ -772,6 +775,8 @@ def astype(call: PandasCall, ctx: RuleContext) -> Value:
     the column holds a missing value (float in pandas), decided over the whole column at run
     time; numbers to bool count missing values as True (NaN is truthy in pandas).
     Caveats: pandas raises when casting missing values to int; Polars keeps them missing.
+    pandas' nullable integers (astype("Int64")) are Polars integers here: a frame handed to
+    pandas later holds such a column with a missing value as float64 (0.95).
     """
     ctx.reject_unknown(call, "dtype", positional=1)
     receiver = call.receiver
@@ -855,6 +860,10 @@ def int_text(column: Column, code: Code, ctx: RuleContext) -> Code:
 
 def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, str]:
     polars, kind = polars_dtype(target)
+    if isinstance(target, Opaque) and target.const in _NULLABLE_INTS:
+        ctx.lower(f"{target.const} is one of pandas' nullable integers: with a missing value a "
+                  "frame handed to pandas later holds the column as float64 (written 26.0 where "
+                  "pandas writes 26)", 0.95)
     code = column.code.method("fill_null", False) if column.null_is_false else column.code
     if kind == "str" and column.dtype in ("bool", None):
         if column.dtype is None:

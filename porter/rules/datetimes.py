@@ -305,8 +305,9 @@ def isocalendar_part(call: PandasCall, ctx: RuleContext) -> Value:
     if column.dtype not in (None, "datetime"):
         raise ctx.todo(f"a {column.dtype} column")
     ctx.lower("pandas' isocalendar() parts are nullable integers: with a missing date they stay "
-              "integers (52, <NA>) where values / tolist() here give 52.0 and nan, and a "
-              "comparison with <NA> is <NA> in pandas", 0.95)
+              "integers (52, <NA>) where values / tolist() here give 52.0 and nan, a frame "
+              "handed to pandas later holds the column as float64 (written 52.0 where pandas "
+              "writes 52), and a comparison with <NA> is <NA> in pandas", 0.95)
     method, dtype = _ISO[call.name]
     code = _dt(column).method(method).method("cast", emit.atom(f"pl.{dtype}"))
     return derived_column(column, code, dtype="int", name=call.name)
