@@ -258,11 +258,16 @@ def _local_kinds(function: ast.FunctionDef, param: str,
                             bindings.setdefault(name.id, []).append(target)
         elif isinstance(stmt, ast.AugAssign) and isinstance(stmt.target, ast.Name):
             bindings.setdefault(stmt.target.id, []).append(stmt)
-        elif isinstance(stmt, (ast.For, ast.With, ast.NamedExpr, ast.comprehension)) or \
-                isinstance(stmt, ast.ExceptHandler) and stmt.name:
-            for name in ast.walk(getattr(stmt, "target", stmt)):
+        else:  # bound where porter does not read a value: a loop, a with, an except, :=
+            targets = [stmt.target] if isinstance(stmt, (ast.For, ast.AsyncFor, ast.NamedExpr,
+                                                          ast.comprehension)) else \
+                [i.optional_vars for i in stmt.items if i.optional_vars is not None] \
+                if isinstance(stmt, (ast.With, ast.AsyncWith)) else []
+            for name in (n for t in targets for n in ast.walk(t)):
                 if isinstance(name, ast.Name):
                     bindings.setdefault(name.id, []).append(name)
+            if isinstance(stmt, ast.ExceptHandler) and stmt.name:
+                bindings.setdefault(stmt.name, []).append(stmt)
     local: dict[str, set[str] | None] = {}
     for name, binds in bindings.items():
         if name == param:

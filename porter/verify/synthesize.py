@@ -285,8 +285,7 @@ def _read_options(read: _Read, call: ast.Call, constants: dict[str, object]) -> 
     names = options.get("names")
     if isinstance(names, (list, tuple)) and all(isinstance(n, str) for n in names):
         read.fixed = list(names)
-        read.header = options.get("header", "infer") not in (None,) and "header" in options \
-            and options["header"] == 0
+        read.header = options.get("header") == 0  # names= alone: no header line
     usecols = options.get("usecols")
     if isinstance(usecols, (list, tuple)) and all(isinstance(n, str) for n in usecols):
         read.fixed = list(usecols) if read.fixed is None else read.fixed
@@ -618,10 +617,7 @@ def _numeric(node: ast.AST) -> bool:
 
 
 def _const(node: ast.AST) -> object:
-    try:
-        return ast.literal_eval(node)
-    except (ValueError, TypeError, SyntaxError, MemoryError, RecursionError):
-        return None
+    return _literal(node, {})
 
 
 def _values(node: ast.AST) -> set[object]:

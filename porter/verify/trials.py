@@ -47,6 +47,7 @@ _OTHER_DATE = re.compile(r"^\s*\d{1,4}[-/.]\d{1,2}[-/.]\d{1,4}([ T]\d{1,2}:\d{2}
 _SEPARATORS = (",", ";", "\t", "|")
 _MISSING = set(PANDAS_NA_TOKENS)  # text pandas' read_csv reads as a missing value
 _SAMPLE_ROWS = 10_000  # rows of each file the trials draw from (the first ones)
+_AGREE = ("same", "same-unordered")  # verdicts and output statuses that agree
 
 
 @dataclass(frozen=True)
@@ -94,7 +95,7 @@ class TrialsResult:
 
     @property
     def agreed(self) -> int:
-        return sum(t.verdict in ("same", "same-unordered") for t in self.trials)
+        return sum(t.verdict in _AGREE for t in self.trials)
 
     @property
     def skipped(self) -> int:
@@ -219,19 +220,19 @@ def _write_table(table: _Table, rows: list[list[str]], folder: Path) -> None:
 
 
 # what porter itself leaves in a folder: the data of trials and samples, never an input
-_OWN_FOLDERS = ("porter-trial-*", "porter-sample-*")
+_OWN_PREFIXES = ("porter-trial-", "porter-sample-")
 
 
 def _own(path: Path, data: Path) -> bool:
-    return any(part.startswith(("porter-trial-", "porter-sample-"))
-               for part in path.relative_to(data).parts)
+    return any(part.startswith(_OWN_PREFIXES) for part in path.relative_to(data).parts)
 
 
 def _dataset(data: Path, tables: list[_Table], drawn: dict[str, list[list[str]]],
              folder: Path) -> Path:
     """A copy of the data folder with the varied tables written over their files (porter's
     own trial folders left out: the copy may be made inside the data folder)."""
-    shutil.copytree(data, folder, ignore=shutil.ignore_patterns(*_OWN_FOLDERS))
+    shutil.copytree(data, folder,
+                    ignore=shutil.ignore_patterns(*(p + "*" for p in _OWN_PREFIXES)))
     for table in tables:
         _write_table(table, drawn[table.path], folder)
     return folder
@@ -242,7 +243,7 @@ def _dataset(data: Path, tables: list[_Table], drawn: dict[str, list[list[str]]]
 def _disagrees(result: VerifyResult) -> bool:
     if result.original.exit_code != 0:
         return False
-    return result.verdict not in ("same", "same-unordered")
+    return result.verdict not in _AGREE
 
 
 def _kind(result: VerifyResult) -> object:
@@ -251,7 +252,7 @@ def _kind(result: VerifyResult) -> object:
     if result.converted.exit_code != 0:
         return "the converted script failed"
     return frozenset(o.name for o in result.outputs
-                     if o.comparison.status not in ("same", "same-unordered"))
+                     if o.comparison.status not in _AGREE)
 
 
 def run_trials(original: str | Path, converted_text: str, data_dir: str | Path,
@@ -306,7 +307,7 @@ def run_trials(original: str | Path, converted_text: str, data_dir: str | Path,
 
 
 def _summary(result: VerifyResult) -> str:
-    odd = [o for o in result.outputs if o.comparison.status not in ("same", "same-unordered")]
+    odd = [o for o in result.outputs if o.comparison.status not in _AGREE]
     if result.converted.exit_code != 0:
         return f"the converted script {result.converted.failure or 'failed'}"
     return "; ".join(f"{o.name}: {o.comparison.status}" for o in odd[:3])
@@ -356,7 +357,7 @@ def _shrink(original: str | Path, converted_text: str, data: Path, tables: list[
     command = f"porter verify {script}" + (f" {converted_path}" if converted_path else "") \
         + f" --data {out}"
     differing = tuple(o for o in result.outputs
-                      if o.comparison.status not in ("same", "same-unordered"))
+                      if o.comparison.status not in _AGREE)
     stderr = result.converted.stderr if result.converted.exit_code != 0 else ""
     return Disagreement(number, str(out), command, {p: len(r) for p, r in current.items()},
                         differing, stderr, runs)
@@ -371,7 +372,7 @@ def render(trials: TrialsResult) -> str:
         lines.append(f"  copied as they are (not varied): {', '.join(trials.copied)}")
     if not trials.varied:
         lines.append("  no CSV file to vary: every trial ran on the sample as it is")
-    disagreeing = sum(t.verdict not in ("same", "same-unordered", "skipped")
+    disagreeing = sum(t.verdict not in (*_AGREE, "skipped")
                       for t in trials.trials)
     if disagreeing:
         lines.append(f"  {disagreeing} trial(s) disagreed; {len(trials.disagreements)} kind(s) "
