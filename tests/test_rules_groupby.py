@@ -928,3 +928,18 @@ df.insert(0, "n", 1)
 s = g.sum()
 '''
     differential(source, "df", "s")
+
+
+@pytest.mark.parametrize("values, q", [
+    ("[1.0, 2.0, np.inf]", 0.5),  # the position falls on 2.0; numpy reads inf next: NaN
+    ("[-np.inf, 2.0, 3.0]", 0.0),  # on -inf itself: NaN
+    ("[1.0, np.inf, np.inf, 4.0]", 0.25),  # between 1.0 and 4.0, no infinity read
+    ("[1.0, 2.0, np.inf]", 1.0),  # the last value, inf
+])
+def test_quantile_with_infinite_values_is_numpys(values, q):
+    differential(f'''
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({{"x": {values}}})
+result = df["x"].quantile({q})
+''')

@@ -198,11 +198,18 @@ def pandas_quantile(column, q):
     # which gives the sign of a zero as numpy gives it (-0.0 alone stays -0.0; else 0.0)
     t = pl.when(position >= last.cast(pl.Float64)).then(position + 1).otherwise(position - below)
     # the two values around the position, found by selection (no sort): below it, and above
-    # it (the same value where the position falls on one; numpy takes the next one there,
-    # which changes nothing unless it is infinite)
+    # it (the same value where the position falls on one)
     a = column.drop_nulls().quantile(q, "lower")
     b = column.drop_nulls().quantile(q, "higher")
-    return pl.when(t >= 0.5).then(b - (b - a) * (1 - t)).otherwise(a + (b - a) * t)
+    # where the position falls on a value numpy also reads the next one: NaN when that one
+    # is inf or the value itself is -inf (inf * 0)
+    infinite = ((column == float("inf")).sum() >= last - below) \
+        | ((column == float("-inf")).sum() >= below + 1)
+    return (
+        pl.when((t == 0) & (below < last) & infinite).then(a + float("nan"))
+        .when(t >= 0.5).then(b - (b - a) * (1 - t))
+        .otherwise(a + (b - a) * t)
+    )
 """
 
 # A function, defined once at the top of a converted script, that gives a pivoted table the
