@@ -320,8 +320,29 @@ def test_read_csv_with_data_is_told_the_schema(data: Path) -> None:
         import pandas as pd
         result = pd.read_csv("produce.csv")
         """, data_dir=str(data))
-    assert "schema_overrides={" in result.converted_text
-    assert "infer_schema_length=0" in result.converted_text  # matched by name, nothing inferred
+    assert "infer_schema_length=0" in result.converted_text  # nothing inferred
+    # read as text, pandas' tokens made missing in one step, then cast by name
+    assert ".is_in(PANDAS_NA_VALUES)" in result.converted_text
+    assert '.cast({"' in result.converted_text
+
+
+def test_read_csv_with_data_makes_every_pandas_token_missing(data: Path) -> None:
+    # the scan reads text and makes pandas' tokens missing after it: every token, in text and
+    # number columns, quoted or not, and a quoted empty field (missing in pandas)
+    tokens = ["", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+              "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null"]
+    lines = ["name,kg,crates,note"]
+    for i, token in enumerate(tokens):
+        quoted = f'"{token}"'
+        lines.append(f"{token},{token},{i},{quoted}")
+        lines.append(f"pear é {i},{i}.5,{token},plain")
+    lines.append('"",-0.0,007,"a, b"')
+    (data / "stock.csv").write_text("\n".join(lines) + "\n", encoding="utf-8")
+    result = differential("""
+        import pandas as pd
+        result = pd.read_csv("stock.csv")
+        """, data_dir=str(data))
+    assert ".is_in(PANDAS_NA_VALUES)" in result.converted_text
 
 
 def test_files_of_one_layout_read_by_one_function_share_the_schema(data: Path) -> None:
@@ -418,8 +439,8 @@ def test_read_csv_na_values_per_column_form(tallies: Path) -> None:
                      'df = pd.read_csv("tallies.csv", na_values={"count": "comp", "nope": "x"})\n',
                      data_dir=str(tallies))
     text = result.converted_text
-    assert 'null_values=PANDAS_NA_VALUES' in text  # pandas' own tokens, for every column
-    assert '"count": pl.String' in text  # read as text: "comp" is not lost to a type first
+    assert 'is_in(PANDAS_NA_VALUES)' in text  # pandas' own tokens, for every column
+    assert '"count": pl.Float64' not in text  # read as text: "comp" is not lost to a type first
     assert 'pl.col("count").replace(["comp"], None).cast(pl.Float64)' in text, text
     assert "nope" not in text  # a key that names no column is ignored, as pandas ignores it
 
