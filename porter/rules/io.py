@@ -149,8 +149,8 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower("the column types are the ones read from --data: a file whose values do not "
                   "fit them fails to read, and a column it adds is read as text (pandas would "
                   "infer other types)", 0.95)
-        if not getattr(schema, "partial", False) and all(t.text in TEXT_CASTS for t in types.values()):
-            code = _scan_as_text(source.code, kwargs, types)
+        if all(t.text in TEXT_CASTS for t in types.values()):
+            code = _scan_as_text(source.code, kwargs, types, bool(getattr(schema, "partial", False)))
         else:
             code = emit.pl("scan_csv", source.code, **kwargs)
     else:
@@ -220,20 +220,28 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
 TEXT_CASTS = ("pl.String", "pl.Int64", "pl.Int32", "pl.Float64", "pl.Float32")
 
 
-def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code]) -> Code:
+def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], partial: bool) -> Code:
     """A scan of every column as text, pandas' missing-value tokens made missing, and a cast to
     the types porter read from --data.
 
     Polars' reader compares every field with each of `null_values` (about 0.1 s per column of
     1,000,000 rows for pandas' 19 tokens); one `is_in` per column after the scan does the same
-    job in a fraction of that. A quoted empty field ("") is missing in pandas, and here too."""
+    job in a fraction of that. A quoted empty field ("") is missing in pandas, and here too.
+    Files of several layouts read by one call (`partial`) cast the columns each file has, as
+    the typed scan's schema_overrides ignore the ones it lacks."""
     options = {k: v for k, v in kwargs.items() if k not in ("schema_overrides", "null_values")}
     nulls = kwargs["null_values"]
     code = emit.pl("scan_csv", source, **options).method(
         "with_columns",
         emit.pl("when", emit.unary("~", emit.atom("pl.all()").method("is_in", nulls)))
         .method("then", emit.atom("pl.all()")))
-    casts = {c: t for c, t in types.items() if t.text != "pl.String"}
+    casts: dict[Any, Code] = {c: t for c, t in types.items() if t.text != "pl.String"}
+    if partial:
+        by_type: dict[str, list[str]] = {}
+        for column, kind in casts.items():
+            by_type.setdefault(kind.text, []).append(column)
+        casts = {emit.call("pl.selectors.by_name", *columns, require_all=False): emit.atom(kind)
+                 for kind, columns in by_type.items()}
     return code.method("cast", casts) if casts else code
 
 
