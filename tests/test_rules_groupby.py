@@ -60,7 +60,36 @@ PORTS = [
                  id="value_counts ties in order of appearance"),
     pytest.param("r = df.describe()", "pandas_quantile(pl.selectors.numeric(), 0.25)",
                  id="describe linear percentiles"),
+    pytest.param('r = df.groupby("shop")["qty"].agg(lambda s: s.max() - s.min())',
+                 '(pl.col("qty").max() - pl.col("qty").min())', id="agg with a lambda"),
 ]
+
+
+# a function given to agg: its body is one value of the group's values
+FUNCTION_AGGREGATIONS = [
+    pytest.param('r = df.groupby("shop")["qty"].agg(lambda s: s.max() - s.min())', id="spread"),
+    pytest.param('r = df.groupby("shop")["n"].agg(lambda s: s.max() / s.min())', id="ratio of ints"),
+    pytest.param('r = df.groupby("shop")["qty"].agg(lambda s: s.max() * 2 + 1)', id="arithmetic"),
+    pytest.param('r = df.groupby("shop")["n"].agg(lambda s: s.count() / 3)', id="count divided"),
+    pytest.param('r = df.groupby("shop")["qty"].agg(lambda s: s.isna().mean())', id="share missing"),
+    pytest.param('r = df.groupby("shop")["t"].agg(lambda s: (s == "x").sum())', id="count of a text"),
+    pytest.param('r = df.groupby("shop")["t"].agg(lambda s: s.str.len().max())', id="longest text"),
+    pytest.param('r = df.groupby("shop")["qty"].agg(lambda s: s.max() if s.count() > 1 else 0)',
+                 id="conditional"),
+    pytest.param('def spread(values):\n    return values.max() - values.min()\n'
+                 'r = df.groupby("shop", dropna=False).agg(sp=("qty", spread), top=("n", lambda s: s.max()),'
+                 ' k=("qty", "count"))', id="named, the script's own function, missing key kept"),
+    pytest.param('r = df.groupby("shop")["n"].agg(gap=lambda s: s.max() - s.min())',
+                 id="named on a selected column"),
+    pytest.param('r = df.groupby("shop", as_index=False)[["qty", "n"]].agg(lambda s: s.max() - s.min())',
+                 id="each selected column"),
+]
+
+
+@pytest.mark.parametrize("before", FUNCTION_AGGREGATIONS)
+def test_function_aggregations_match_pandas(before: str) -> None:
+    result = differential(FRAME + before + "\n", "r")
+    assert "TODO" not in result.converted_text, result.converted_text
 
 
 @pytest.mark.parametrize("before, expected", PORTS)
@@ -69,8 +98,12 @@ def test_ports(before: str, expected: str) -> None:
 
 
 TODOS = [
-    pytest.param('r = df.groupby("shop")["qty"].agg(lambda s: s.max() - s.min())', "groupby.agg",
-                 id="agg with a lambda"),
+    pytest.param('r = df.groupby("shop")["t"].agg(lambda s: ", ".join(s.dropna()))', "groupby.agg",
+                 id="agg with a lambda that is not an expression"),
+    pytest.param('r = df.groupby("shop")["qty"].agg(lambda s: s.sum() / df["qty"].sum())',
+                 "groupby.agg", id="agg with a lambda reading the whole frame",
+                 marks=pytest.mark.xfail(reason="known gap: a function handed to pandas that "
+                                         "reads a frame porter tracks still sees a LazyFrame")),
     pytest.param('r = df.groupby("shop").agg(["min", "max"])', "groupby.agg",
                  id="list of functions over several columns"),
     pytest.param('r = df.groupby("shop")["qty"].sum(min_count=1)', "groupby.sum", id="min_count"),

@@ -3,8 +3,6 @@ value_counts, unique, nunique, describe."""
 
 from __future__ import annotations
 
-from dataclasses import replace
-
 from dataclasses import dataclass, field, replace
 from typing import Any
 
@@ -75,6 +73,25 @@ def how_name(value: Value) -> str:
         # pandas 3 calls a Python builtin on each group's values (NaN included)
         return {"len": "size"}.get(value.code.text, f"builtin_{value.code.text}")
     raise Unsupported(f"aggregation {value.code.text} (a function porter cannot read)")
+
+
+def _is_function(value: Value) -> bool:
+    """A lambda, or a name porter does not know as a value (the script's own def)."""
+    return isinstance(value, Opaque) and not value.is_const \
+        and isinstance(value.node, (cst.Lambda, cst.Name)) \
+        and not (isinstance(value.node, cst.Name) and value.node.value in ("sum", "min", "max", "len"))
+
+
+def _function_pair(spec: Value, ctx: RuleContext) -> tuple[str, Opaque] | None:
+    """("kg", lambda s: ...) in a named aggregation: the column and the function."""
+    node = spec.node if isinstance(spec, Opaque) else None
+    if not (isinstance(node, cst.Tuple) and len(node.elements) == 2):
+        return None
+    column, function = (ctx.evaluate(e.value, {}) for e in node.elements)
+    if isinstance(column, Opaque) and isinstance(column.const, str) and _is_function(function):
+        assert isinstance(function, Opaque)
+        return column.const, function
+    return None
 
 
 def grouped_of(call: PandasCall) -> Grouped:
@@ -287,12 +304,24 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
     frame's one column (g[["kg"]].agg([...])); handed to pandas with its keys in the index,
     the frame gets its two levels back (handover.to_pandas); g["kg"].agg(total="sum");
     the Python builtins sum / min / max, which pandas 3 calls on each group's values (a
-    missing value makes sum NaN; one met first is min and max), and len (the group size).
+    missing value makes sum NaN; one met first is min and max), and len (the group size);
+    a lambda or the script's own function whose body is a reduction of the group's values, or
+    reductions combined by operators (s.max() - s.min()): one aggregation expression
+    (windows.group_function).
+    Caveats: a float sum/mean/std/var inside such a function is numpy's pairwise summation in
+    pandas, Polars adds in order: the last digit can differ (0.95).
     """
     grouped = grouped_of(call)
     exprs: list[Code] = []
     names: list[str] = []
     dtypes: list[str | None] = []
+
+    def add_function(column: str, function: Opaque, name: str) -> None:
+        from porter.rules.windows import group_function  # windows builds on this module
+        expr, dtype = group_function(call, grouped, column, function, ctx)
+        exprs.append(expr.method("alias", name))
+        names.append(name)
+        dtypes.append(dtype)
 
     def add(column: str, how: str, name: str) -> None:
         if how == "size":
@@ -306,6 +335,13 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
     if call.kwargs and not call.args:
         selected = grouped.selection[0] if grouped.single and grouped.selection else None
         for name, spec in call.kwargs.items():
+            pair = _function_pair(spec, ctx)
+            if pair is not None:  # g.agg(spread=("kg", lambda s: s.max() - s.min()))
+                add_function(pair[0], pair[1], name)
+                continue
+            if selected is not None and _is_function(spec):
+                add_function(selected, spec, name)  # g["kg"].agg(spread=lambda s: ...)
+                continue
             if selected is not None and not (isinstance(spec, Opaque) and isinstance(spec.const, tuple)):
                 add(selected, how_name(spec), name)  # g["kg"].agg(total="sum")
                 continue
@@ -346,6 +382,17 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
         for how in spec:
             add(columns[0], str(how), str(how))
         return aggregate(grouped, exprs, names, ctx, dtypes=dtypes)
+    if _is_function(spec_value):
+        # g["kg"].agg(lambda s: s.max() - s.min()), g.agg(spread): each column's own value
+        assert isinstance(spec_value, Opaque)
+        columns = target_columns(grouped, ctx)
+        if columns is None:
+            raise Unsupported("a function over columns porter does not know")
+        for column in columns:
+            add_function(column, spec_value, column)
+        single = grouped.single and len(columns) == 1
+        return aggregate(grouped, exprs, names, ctx, series_name=columns[0] if single else None,
+                         is_series=single, dtypes=dtypes)
     how = how_name(spec_value)
     if how.startswith("builtin_"):
         columns = target_columns(grouped, ctx)

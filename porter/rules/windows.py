@@ -10,6 +10,7 @@ in between), so the expression sees the rows in pandas' order.
 from __future__ import annotations
 
 from dataclasses import dataclass, field, replace
+import re
 
 import libcst as cst
 
@@ -242,27 +243,75 @@ def group_transform(call: PandasCall, ctx: RuleContext) -> Value:
 GROUP_FRAME = "_porter_group"
 
 
-def _transform_function(call: PandasCall, grouped: Grouped, column: Column, function: Opaque,
-                        ctx: RuleContext) -> Value:
-    """transform(f): f's body evaluated once with its parameter standing for the group's
-    column, over a frame of its own rows (the group's), and computed per group by .over()."""
-    ctx.reject_unknown(call, "func", positional=1)
+def _parameter_and_body(call: PandasCall, function: Opaque, ctx: RuleContext,
+                        advice: str) -> tuple[str, cst.BaseExpression]:
+    """A lambda's or the script's own function's one parameter and its body as one expression."""
     if isinstance(function.node, cst.Lambda):
         params = function.node.params
         if len(params.params) != 1 or params.star_arg not in (None, cst.MaybeSentinel.DEFAULT) \
                 or params.kwonly_params or params.star_kwarg or params.posonly_params:
             raise Unsupported("a lambda that does not take exactly the group's values")
-        param, body = params.params[0].name.value, function.node.body
+        return params.params[0].name.value, function.node.body
+    named = function_value(call, function, ctx)
+    if named is None:
+        raise Unsupported(f"a function porter cannot read: {advice}")
+    return named.params.params[0].name.value, body_expression(named)
+
+
+def _group_of(grouped: Grouped) -> Frame:
+    """The group inside a function: the frame's columns, rows of their own (a Series of another
+    frame in the body is pandas' index alignment, a TODO), labels that are not 0..n-1."""
+    return replace(grouped.frame, code=emit.atom(GROUP_FRAME), rows=fresh_token(),
+                   labels_intact=False, sites=())
+
+
+def group_function(call: PandasCall, grouped: Grouped, name: str, function: Opaque,
+                   ctx: RuleContext) -> tuple[Code, str | None]:
+    """agg(f) on the group's column `name`: f's body evaluated once with its parameter
+    standing for the group's values. A reduction of them (`s.max()`, `(s == "x").sum()`,
+    `s.str.len().mean()`) or reductions combined by Python operators (`s.max() - s.min()`)
+    is one value per group: (the aggregation expression, its type)."""
+    param, body = _parameter_and_body(call, function, ctx, "write it as an aggregation")
+    for other in _free_names(body) - {param}:
+        # a reduction of a whole frame inside the function (s.sum() / df["kg"].sum()) would be
+        # written as the group's own in an aggregation
+        if isinstance(ctx.evaluate(cst.Name(other), {}), (Frame, Column, Grouped)):
+            raise Unsupported(f"the function reads `{other}`, not only the group's values")
+    group = _group_of(grouped)
+    values = column_of(group, name)
+    result = _checked(ctx.evaluate(body, {param: values}), ctx)
+    if isinstance(result, Scalar) and result.agg is not None and result.agg.frame.rows == group.rows:
+        expr, dtype = result.agg.code, result.agg.dtype or result.pytype
     else:
-        named = function_value(call, function, ctx)
-        if named is None:
-            raise Unsupported("a function porter cannot read: write it as an expression .over(keys)")
-        body = body_expression(named)
-        param = named.params.params[0].name.value
-    # the group: the frame's columns, rows of their own (a Series of another frame in the body
-    # is pandas' index alignment, a TODO), labels that are not 0..n-1
-    group = replace(grouped.frame, code=emit.atom(GROUP_FRAME), rows=fresh_token(),
-                    labels_intact=False, sites=())
+        reductions = _GroupReductions(param, values, grouped, ctx, windowed=False)
+        rewritten = body.visit(reductions)
+        assert isinstance(rewritten, cst.BaseExpression)
+        if not reductions.bindings or _mentions(rewritten, param):
+            raise Unsupported("the function's result is not one value of the group's column "
+                              "(a reduction, or reductions combined by operators)")
+        combined = _checked(ctx.evaluate(rewritten, reductions.bindings), ctx)
+        if not (isinstance(combined, Column) and combined.frame.rows == grouped.frame.rows):
+            raise Unsupported("the function's reductions are combined in a way porter cannot "
+                              "write as an expression")
+        expr, dtype = ctx.bool_expr(combined, grouped.frame), combined.dtype
+        if combined.refs - {name}:
+            raise Unsupported("the function reads other columns than the group's")
+    if GROUP_FRAME in expr.text or (isinstance(result, Scalar) and result.agg is not None
+                                    and result.agg.refs - {name}):
+        raise Unsupported("the function reads the group as a frame (a collected value, a filter)")
+    if grouped.frame.dtype(name) in ("float", None) and re.search(r"\.(sum|mean|std|var)\(", expr.text):
+        ctx.lower("pandas adds a group's values inside a function with numpy's pairwise "
+                  "summation, Polars in order: a float result can differ in the last digit", 0.95)
+    return expr, dtype
+
+
+def _transform_function(call: PandasCall, grouped: Grouped, column: Column, function: Opaque,
+                        ctx: RuleContext) -> Value:
+    """transform(f): f's body evaluated once with its parameter standing for the group's
+    column, over a frame of its own rows (the group's), and computed per group by .over()."""
+    ctx.reject_unknown(call, "func", positional=1)
+    param, body = _parameter_and_body(call, function, ctx, "write it as an expression .over(keys)")
+    group = _group_of(grouped)
     values = column_of(group, column.name or "")
     result = _checked(ctx.evaluate(body, {param: values}), ctx)
     if isinstance(result, Scalar) and result.agg is not None and result.agg.frame.rows == group.rows:
@@ -288,9 +337,11 @@ class _GroupReductions(cst.CSTTransformer):
     """Replaces each reduction of the group's values (`s.max()`, `s.notna().sum()`) by a name
     bound to it as a window (`pl.col("v").max().over(key)`): one value on every row."""
 
-    def __init__(self, param: str, values: Column, grouped: Grouped, ctx: RuleContext) -> None:
+    def __init__(self, param: str, values: Column, grouped: Grouped, ctx: RuleContext, *,
+                 windowed: bool = True) -> None:
         super().__init__()
         self.param, self.values, self.grouped, self.ctx = param, values, grouped, ctx
+        self.windowed = windowed  # False: the reductions of an aggregation, one row per group
         self.bindings: dict[str, Value] = {}
 
     def leave_Call(self, original: cst.Call, updated: cst.Call) -> cst.BaseExpression:
@@ -306,8 +357,8 @@ class _GroupReductions(cst.CSTTransformer):
         how = original.func.attr.value
         # the sum of booleans counts them (an int, Int64 from series_reduce)
         dtype = "int" if how == "sum" and base.dtype == "bool" else REDUCTION_TYPES.get(how, base.dtype)
-        self.bindings[name] = derived_column(base, _over(self.grouped, value.agg.code), dtype=dtype,
-                                             name=None)
+        code = _over(self.grouped, value.agg.code) if self.windowed else value.agg.code
+        self.bindings[name] = derived_column(base, code, dtype=dtype, name=None)
         return cst.Name(name)
 
 
@@ -1048,6 +1099,26 @@ def _keeps_missing(node: cst.BaseExpression, names: set[str]) -> bool:
             and len(node.args) == 1:
         return _keeps_missing(node.args[0].value, names)
     return False
+
+
+def _free_names(node: cst.CSTNode) -> set[str]:
+    """The names an expression reads (not attribute names, nor keyword names)."""
+    names: set[str] = set()
+
+    class Finder(cst.CSTVisitor):
+        def visit_Name(self, n: cst.Name) -> None:
+            names.add(n.value)
+
+        def visit_Attribute(self, n: cst.Attribute) -> bool:
+            n.value.visit(self)
+            return False
+
+        def visit_Arg(self, n: cst.Arg) -> bool:
+            n.value.visit(self)
+            return False
+
+    node.visit(Finder())
+    return names
 
 
 def _mentions(node: cst.CSTNode, name: str) -> bool:
