@@ -976,3 +976,28 @@ import pandas as pd
 df = pd.DataFrame({{"x": {values}}})
 result = df["x"].quantile({q})
 ''')
+
+
+# s.idxmax() / idxmin(): the label of the first extreme value, missing values skipped
+EXTREME_LABELS = [
+    pytest.param('r = (df["qty"].idxmax(), df["qty"].idxmin(), df["n"].idxmax(), df["t"].idxmin())',
+                 id="row labels of a frame labelled 0..n-1, ties and NaN"),
+    pytest.param('per = df.groupby("shop")["n"].sum()\nr = (per.idxmax(), per.idxmin())',
+                 id="the key of a groupby result"),
+    pytest.param('r = (df.loc[df["n"].idxmax(), "t"], df.loc[df["qty"].idxmin(), "n"])',
+                 id="the value on that row"),
+    pytest.param('per = df.groupby("shop").agg(q=("qty", "sum"), k=("n", "max"))\n'
+                 'r = per.loc[per["q"].idxmax(), "k"]', id="the value on a groupby result's row"),
+]
+
+
+@pytest.mark.parametrize("before", EXTREME_LABELS)
+def test_extreme_labels_match_pandas(before: str) -> None:
+    result = differential(FRAME + before + "\n", "r")
+    assert "TODO" not in result.converted_text, result.converted_text
+    assert "to_pandas" not in result.converted_text
+
+
+def test_extreme_label_after_a_filter_stays_todo() -> None:
+    # the labels are the original row numbers: arg_max of the filtered rows is another number
+    check_todo(FRAME + 'r = df[df["n"] > 3]["qty"].idxmax()\n', "series.idxmax")

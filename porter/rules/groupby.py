@@ -854,6 +854,52 @@ def group_extreme_labels(call: PandasCall, ctx: RuleContext) -> Value:
                          keys=grouped.keys, column=column, how=how)
 
 
+@dataclass(frozen=True)
+class RowPosition(Scalar):
+    """s.idxmax() / idxmin(): a row label, and the position of its row (`position`, an
+    expression) in the frame with the rows `rows`: df.loc[this, "c"] of that frame is
+    pl.col("c").get(position) (rules/selection.py)."""
+
+    rows: int = field(kw_only=True)
+    position: Code = field(kw_only=True)
+
+
+@rule("series.idxmax", "series.idxmin")
+def series_extreme_label(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.idxmax() / idxmin() -> the row label of the first largest / smallest value: its row
+    number (arg_max / arg_min) on a frame whose labels are 0..n-1, or its key where a groupby
+    on one key left the key as the label (`per["kg"].idxmax()`).
+
+    Handles: missing values skipped; the first of equal values; the label as a Python value,
+    as pandas gives it.
+    Caveats: a frame whose labels are no longer 0..n-1, labels of several keys (pandas gives
+    a tuple) and skipna=False are TODOs; a column whose values are all missing (or none) makes
+    pandas raise, here the label is None (0.95).
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "skipna", "axis")
+    if call.const("skipna", None, True) is not True:
+        raise Unsupported("skipna=False")
+    if column.dtype not in ("int", "float", "str", "date", "datetime", "duration"):
+        raise Unsupported("the extreme of a column whose type porter does not know")
+    frame = column.frame
+    how = call.name.removeprefix("series.idx")[-3:]
+    values = column.code
+    if not frame.index and frame.labels_intact:
+        label = values.method(f"arg_{how}")
+    elif len(frame.index) == 1 and column.name not in frame.index:
+        label = emit.col(frame.index[0]).method("get", values.method(f"arg_{how}"))
+    else:
+        raise Unsupported("the frame's row labels are no longer 0..n-1 (or are several keys): "
+                          "keep the row number as a column (with_row_index) where it is made")
+    ctx.lower("a column whose values are all missing makes pandas raise; the label is None "
+              "here", 0.95)
+    pytype = "int" if not frame.index else {"int": "int", "str": "str"}.get(frame.dtype(frame.index[0]) or "")
+    return RowPosition(frame.code.method("select", label).method("collect").method("item"),
+                       pytype=pytype, rows=frame.rows, position=values.method(f"arg_{how}"))
+
+
 @rule("frame.pivot")
 def pivot(call: PandasCall, ctx: RuleContext) -> Value:
     """df.pivot(index=, columns=, values=) -> the collected frame pivoted without aggregating

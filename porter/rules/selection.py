@@ -150,12 +150,23 @@ def slice_rows(frame: Frame, s: slice) -> Frame:
 def loc(call: PandasCall, ctx: RuleContext) -> Value:
     """df.loc[mask, cols] -> .filter(mask).select(cols); df.loc[:, "a"] -> a column.
 
-    Caveats: row labels (df.loc[3], df.loc["a":"c"]) are TODOs: the index is not data in Polars.
+    Handles: df.loc[s.idxmax(), "c"] of the frame the label was read from: the value on that
+    row (pl.col("c").get(pl.col(s).arg_max())).
+    Caveats: other row labels (df.loc[3], df.loc["a":"c"]) are TODOs: the index is not data in
+    Polars.
     """
     frame = frame_of(call)
     rows = call.args[0]
     cols = call.args[1] if len(call.args) > 1 else None
-    from porter.rules.groupby import ExtremeLabels
+    from porter.rules.groupby import ExtremeLabels, RowPosition, scalar_of
+    if isinstance(rows, RowPosition) and rows.rows == frame.rows \
+            and isinstance(cols, Opaque) and isinstance(cols.const, str):
+        # df.loc[df["kg"].idxmax(), "boat"]: the value on the row the label was read from
+        column = column_by_key(frame, cols, ctx)
+        if not isinstance(column, Column) or column.dtype not in ("int", "float", "str", "bool"):
+            raise Unsupported("a value of a column whose type porter does not know")
+        return scalar_of(column, column.code.method("get", rows.position),
+                         column.dtype if column.dtype in ("int", "float") else None)
     if isinstance(rows, ExtremeLabels) and rows.source.rows == frame.rows \
             and frame.labels_intact and not frame.index:
         # df.loc[df.groupby(k)["c"].idxmin()]: each group's row of its first smallest value,

@@ -260,9 +260,10 @@ def _parameter_and_body(call: PandasCall, function: Opaque, ctx: RuleContext,
 
 def _group_of(grouped: Grouped) -> Frame:
     """The group inside a function: the frame's columns, rows of their own (a Series of another
-    frame in the body is pandas' index alignment, a TODO), labels that are not 0..n-1."""
+    frame in the body is pandas' index alignment, a TODO), labels that are not 0..n-1, bound
+    to no name (the body reading the group's labels says nothing of the frame's)."""
     return replace(grouped.frame, code=emit.atom(GROUP_FRAME), rows=fresh_token(),
-                   labels_intact=False, sites=())
+                   labels_intact=False, sites=(), binding=None)
 
 
 def group_function(call: PandasCall, grouped: Grouped, name: str, function: Opaque,
