@@ -300,3 +300,30 @@ def test_labels_read_inside_the_scripts_own_functions(body: str) -> None:
 ])
 def test_labels_of_what_the_scripts_own_function_returns(body: str) -> None:
     differential(HEAD + body)
+
+
+@pytest.mark.parametrize("body", [
+    # the helper adds a row at label len(frame): after the filter that label may exist, and
+    # pandas overwrites that row instead of adding one
+    'def add_total(frame):\n    frame.loc[len(frame), ["boat", "cars"]] = ["TOTAL", frame["cars"].sum()]\n'
+    'df = df[df["cars"] > 0]\nadd_total(df)\nresult = df\n',
+    # the helper drops and writes by label (label 1 is gone after the filter: a new row)
+    'def fix(frame):\n    frame.drop(index=[3], inplace=True, errors="ignore")\n'
+    '    frame.loc[1, "leg"] = "fixed"\n'
+    'df = df[df["cars"] > 4]\nfix(df)\nresult = df\n',
+    # a sort, a column, then the helper writes one cell by label
+    'def mark(frame):\n    frame.at[2, "leg"] = "two"\n'
+    'df = df.sort_values("cars", kind="stable")\ndf["double"] = df["cars"] * 2\nmark(df)\nresult = df\n',
+    # the same written in the script itself
+    'df = df[df["cars"] > 0]\ndf.at[5, "leg"] = "five"\nresult = df\n',
+])
+def test_a_frame_changed_in_place_by_label_after_a_filter_keeps_pandas_labels(body: str) -> None:
+    differential(HEAD + body)
+
+
+def test_a_helper_changing_a_frame_that_keeps_its_labels_leaves_the_read_on_polars() -> None:
+    # no filter or sort before: the labels are 0..n-1 on both sides, the read stays Polars
+    result = differential(HEAD + 'def add_total(frame):\n'
+                          '    frame.loc[len(frame), ["boat", "cars"]] = ["TOTAL", frame["cars"].sum()]\n'
+                          'df["double"] = df["cars"] * 2\nadd_total(df)\nresult = df\n')
+    assert "frame.labels" not in {site.key for site in result.sites}

@@ -761,6 +761,13 @@ class _Walker:
         for name, what in changed.items():
             value = env[name]
             kind = "frame" if isinstance(value, Frame) else "series"
+            if _may_read_labels(what, value):
+                # the change may read or write by row label (`at[2, "s"]`, a helper's
+                # `frame.loc[len(frame)] = …` or `drop(index=[4])`): after a filter or sort
+                # those are the original row numbers, which a frame handed over from Polars
+                # numbers 0..n-1 again, so the next pass has pandas make it (engine.bind)
+                evaluator = Evaluator(env, self.services)
+                evaluator.note_handed_over(value)
             if isinstance(value, Frame):
                 self.note_handed_over(name, value)
                 lines += self.hand_over_expressions_of(name, env, stmt)
@@ -1814,3 +1821,18 @@ def _todo_comments(sites: list[SiteDraft], line: Any) -> list[cst.EmptyLine]:
             comments.append(cst.EmptyLine(comment=cst.Comment(f"#   suggested: {lines[0]}")))
             comments += [cst.EmptyLine(comment=cst.Comment(f"#   {line}")) for line in lines[1:]]
     return comments
+
+
+# changes made in place that never read nor write by row label: the rest (`at[...]`,
+# `update(other)`, `s[2] = …`, a change the script's own function makes) may
+_LABEL_FREE_CHANGES = frozenset({"insert", "pop", "isetitem", "popitem", "iat", "iloc", "name",
+                                 "columns", "columns.name", "index.name", "index.names"})
+
+
+def _may_read_labels(what: str, value: Value) -> bool:
+    """Whether a change made in place that porter leaves on pandas may read the row labels of
+    `value` (a frame or Series): an `attrs`/`flags` change or one of _LABEL_FREE_CHANGES never
+    does."""
+    if what.startswith(("attrs", "flags")) or what in _LABEL_FREE_CHANGES:
+        return False
+    return isinstance(value, (Frame, Column))
