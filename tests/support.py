@@ -199,3 +199,34 @@ def run_script(script: Path, workdir: Path, timeout: float = 120) -> subprocess.
 def outputs(before: set[Path], workdir: Path) -> dict[str, Path]:
     return {str(p.relative_to(workdir)): p for p in workdir.rglob("*")
             if p.is_file() and p.relative_to(workdir) not in before}
+
+
+def same_text(source: str, tmp_path: Path, files: dict[str, str] | None = None,
+              with_data: bool = True) -> FileResult:
+    """Run `source` with pandas and its conversion with Polars, each in a folder of its own
+    holding `files` (converted with them as --data unless `with_data` is False), and check
+    that they print the same text and write files of the same text (2024.0 and 2024 differ
+    here, as they do for whoever reads the output)."""
+    import sys
+    source = textwrap.dedent(source)
+    folders = {side: tmp_path / side for side in ("pandas", "polars")}
+    for folder in folders.values():
+        folder.mkdir()
+        for name, content in (files or {}).items():
+            (folder / name).write_text(textwrap.dedent(content))
+    data = str(folders["pandas"]) if files and with_data else None
+    result = convert_source(source, options=Options(data_dir=data))
+    texts = []
+    for side, text in (("pandas", source), ("polars", result.converted_text)):
+        folder = folders[side]
+        (folder / "script.py").write_text(text)
+        done = subprocess.run([sys.executable, "script.py"], cwd=folder, capture_output=True,
+                              text=True, timeout=120)
+        assert done.returncode == 0, f"{side} failed:\n{done.stderr}\n--- converted ---\n" \
+                                     f"{result.converted_text}"
+        written = {p.name: p.read_text() for p in sorted(folder.iterdir())
+                   if p.name != "script.py" and p.name not in (files or {})}
+        texts.append((done.stdout, written))
+    assert texts[0] == texts[1], f"pandas {texts[0]}\npolars {texts[1]}\n--- converted ---\n" \
+                                 f"{result.converted_text}"
+    return result

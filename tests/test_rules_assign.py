@@ -10,7 +10,7 @@ from __future__ import annotations
 import pytest
 
 from rule_checks import check_ports, check_todo, check_unchanged
-from support import convert, differential, run
+from support import convert, differential, run, same_text
 
 # NaN and None together, duplicates, unicode text, booleans.
 FRAME = """\
@@ -524,3 +524,53 @@ df["week"] = df["w"].astype("Int64")
 ''')
     site = next(s for s in result.sites if s.key == "series.astype")
     assert site.confidence <= 0.95 and "float64" in site.message
+
+
+# -- columns pandas makes float64 because a value is missing, whatever the values ------------------
+
+DATA_AB = {"data.csv": """\
+    id,a,b
+    1,5,1.5
+    2,5,
+    3,-2,3.0
+    4,0,-1.0
+    5,9,2.0
+    """}
+
+
+@pytest.mark.parametrize("mask", ['df["a"] > 4', 'df["a"] > -100', 'df["a"] > 100'],
+                         ids=["some rows", "every row", "no row"])
+def test_loc_setitem_of_a_new_column_is_float_whatever_the_mask(tmp_path, mask) -> None:
+    # pandas makes the new column float64 (NaN outside the mask) even when the mask is all
+    # True or all False, and it stays float after fillna: written 1.0, "1.0" as text
+    source = f'''
+import pandas as pd
+df = pd.read_csv("data.csv")
+df.loc[{mask}, "h"] = 1
+df["h"] = df["h"].fillna(0)
+df["hs"] = df["h"].astype(str)
+print(df["h"].sum(), df["h"].tolist())
+df.to_csv("o.csv", index=False)
+'''
+    result = same_text(source, tmp_path, DATA_AB)
+    assert "TODO" not in result.converted_text
+
+
+def test_nan_assigned_to_a_column_is_a_float_column(tmp_path) -> None:
+    # df["z"] = np.nan is a float64 column of NaN in pandas: filled with 1 it writes 1.0, and
+    # its mean is NaN (Polars' Null-typed pl.lit(None) would fill to integers)
+    source = '''
+import numpy as np
+import pandas as pd
+df = pd.read_csv("data.csv")
+df["z"] = np.nan
+df["z"] = df["z"].fillna(1)
+df.loc[df["b"].isna() | (df["b"] < 0), "n5"] = np.nan
+df["n5"] = df["n5"].fillna(0)
+df["z2"] = np.nan
+df["zm"] = df["z2"].mean()
+df.to_csv("o.csv", index=False)
+print(df["z"].tolist(), df["n5"].tolist())
+'''
+    result = same_text(source, tmp_path, DATA_AB)
+    assert "pl.lit(None, dtype=pl.Float64)" in result.converted_text

@@ -14,7 +14,7 @@ import polars as pl
 import pytest
 
 from rule_checks import check_todo, check_unchanged
-from support import convert, converted_text, differential, run
+from support import convert, converted_text, differential, run, same_text
 
 # Tricky on purpose: a missing key on each side (None on the left, NaN on the right; pandas
 # matches them with each other), a duplicated key on each side (many-to-many), unicode keys,
@@ -148,8 +148,9 @@ PORTS = [
         id="an index that is not a key is dropped, as pandas ignores it"),
     pytest.param(
         'result = pd.concat([left, right], ignore_index=True)',
-        'pl.concat([left, right], how="diagonal_relaxed")',
-        id="concat aligns columns by name"),
+        '''pl.concat([left, right], how="diagonal_relaxed")
+               .with_columns(pl.col(["lv", "rv"]).cast(pl.Float64))''',
+        id="concat aligns columns by name, an int column a frame lacks is float"),
     pytest.param(
         'result = pd.concat([left, right], join="inner")',
         'pl.concat([left, right], how="diagonal_relaxed").select("k")',
@@ -750,3 +751,21 @@ n = right.merge(left, on="k", how="inner")
 '''
     result = differential(source, "m", "n")
     assert "TODO" not in result.converted_text
+
+
+@pytest.mark.parametrize("rest", ['df[df["a"] <= 4][["id", "b"]]', 'df[df["a"] > 100][["id", "b"]]'],
+                         ids=["rows", "no rows"])
+def test_concat_of_a_frame_without_an_int_column_makes_it_float(tmp_path, rest) -> None:
+    # pandas makes the int column float64 (NaN for the frame without it), even when that
+    # frame has no rows: after fillna it writes 5.0, and its sum prints 28.0
+    source = f'''
+import pandas as pd
+df = pd.read_csv("data.csv")
+top = df[df["a"] > 4][["id", "a"]]
+rest = {rest}
+both = pd.concat([top, rest], ignore_index=True)
+both["a"] = both["a"].fillna(0)
+both.to_csv("both.csv", index=False)
+print(both["a"].sum(), both["a"].tolist())
+'''
+    same_text(source, tmp_path, {"data.csv": "id,a,b\n1,5,1.5\n2,5,\n3,-2,3.0\n4,0,-1.0\n5,9,2.0\n"})

@@ -10,7 +10,7 @@ from __future__ import annotations
 import pytest
 
 from rule_checks import check_ports, check_todo, check_unchanged
-from support import convert, differential, run
+from support import convert, differential, run, same_text
 
 # NaN and None together in floats and in text, a column without missing values, unicode.
 FRAME = """\
@@ -332,3 +332,19 @@ def test_frame_fillna_with_unknown_columns_fills_text_as_pandas_writes_it(tmp_pa
     expected = (tmp_path / "f.csv").read_text()
     run(convert(source).converted_text)
     assert (tmp_path / "f.csv").read_text() == expected
+
+
+def test_np_where_with_nan_beside_integers_stays_float_after_fillna(tmp_path) -> None:
+    # numpy makes NaN beside an int column a float64 array whatever the condition: after
+    # fillna pandas writes 5.0 and -1.0 (Polars' null beside Int64 would give 5 and -1)
+    source = '''
+import numpy as np
+import pandas as pd
+df = pd.read_csv("data.csv")
+df["n1"] = np.where(df["x"].isna(), np.nan, df["a"])
+df["n1"] = df["n1"].fillna(-1)
+df["n2"] = np.where(df["a"] > -100, df["a"], np.nan)
+df.to_csv("o.csv", index=False)
+print(df["n1"].tolist(), df["n2"].astype(str).tolist())
+'''
+    same_text(source, tmp_path, {"data.csv": "a,x\n5,\n5,2.0\n-2,3.0\n0,4.0\n"})

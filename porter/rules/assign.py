@@ -85,6 +85,10 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
         if isinstance(value.const, dict):
             raise Unsupported("a dict assigned as a column: pandas makes its keys the values")
         kind = {bool: "bool", int: "int", float: "float", str: "str"}.get(type(value.const))
+        if kind == "float" and value.const != value.const:
+            # np.nan is a float64 column of missing values in pandas (pl.lit(None) would be
+            # of Polars' Null type, which fill_null(1) makes integer)
+            return emit.pl("lit", None, dtype=emit.atom("pl.Float64")), "float"
         # a whole number is int64 in pandas (Polars' pl.lit would make it Int32)
         return int64_lit(value.const) if kind == "int" else emit.pl("lit", value.const), kind
     if isinstance(value, Scalar):
@@ -481,7 +485,8 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: a comparison that met a missing value is stored as False, like pandas; one value
     into several columns (df[["a", "b"]] = 0); a Series pandas computed row for row (a map or
-    apply under a TODO) put back by position, lists of text it returns kept lists.
+    apply under a TODO) put back by position, lists of text it returns kept lists; np.nan is a
+    Float64 column of missing values, as pandas' float64.
     Caveats: a Series from another frame aligns on the index in pandas: a TODO. A function
     pandas maps whose `return`s give values of several kinds (number and text), lists of
     other values, tuples, dicts or sets keeps the statement and the frame on pandas (Polars
@@ -745,7 +750,8 @@ def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
     """df.loc[mask, "c"] = v -> .with_columns(c=pl.when(mask).then(v).otherwise(pl.col("c"))).
 
     Handles: rows where the mask met a missing value keep their value (pandas' False); a new
-    column is missing outside the mask, as pandas makes it.
+    column is missing outside the mask, as pandas makes it; a new column given a whole number
+    is Float64, as pandas makes it float64 whatever the mask (all True too).
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
@@ -768,8 +774,15 @@ def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
     exists = frame.columns is None or name in frame.columns
     if frame.columns is None:
         ctx.lower(f"column {name!r} is taken to exist already", 0.9)
+    if not exists and dtype == "int":
+        # a new column is NaN outside the mask: pandas makes it float64 whatever the mask
+        # (all True too), and it stays float after fillna
+        code = emit.pl("lit", float(value.const)) if isinstance(value, Opaque) \
+            and isinstance(value.const, int) else code.method("cast", emit.atom("pl.Float64"))
+        dtype = "float"
     new = emit.when(ctx.expr(rows, frame), code, emit.col(name) if exists else None)
-    return with_columns(frame, [(name, new, dtype if dtype == frame.dtype(name) else None)])
+    kept = dtype == frame.dtype(name) or not exists and dtype == "float"
+    return with_columns(frame, [(name, new, dtype if kept else None)])
 
 
 @rule("frame.astype", "series.astype")

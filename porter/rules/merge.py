@@ -661,7 +661,8 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
     """pd.concat([a, b]) -> pl.concat([a, b], how="diagonal_relaxed").
 
     Handles: columns aligned by name in first-seen order, a column missing from a frame is
-    missing there, int and float columns take the common type (C01); join="inner" and
+    missing there (an int column becomes float64 in pandas, even when that frame has no rows:
+    cast to Float64), int and float columns take the common type (C01); join="inner" and
     sort=True when the columns are known; ignore_index=True gives fresh labels (C02).
     Caveats: axis=1, keys=, Series and frames porter does not track are TODOs.
     """
@@ -696,8 +697,17 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
     union = _union(f.columns or () for f in frames)
     if columns is not None and columns != union:
         code = code.method("select", *columns)
+    dtypes = _concat_dtypes(frames, columns)
+    gaps = [c for c in columns or () if dict(dtypes).get(c) == "int"
+            and any(c not in (f.columns or ()) for f in frames)]
+    if gaps:
+        # a frame without the column gives it NaN: pandas makes it float64 (an empty such
+        # frame too), where Polars' nulls would stay Int64 (written 5 after fillna, pandas 5.0)
+        code = code.method("with_columns", emit.col(emit.names_arg(gaps)).method(
+            "cast", emit.atom("pl.Float64")))
+        dtypes = tuple((c, "float" if c in gaps else t) for c, t in dtypes)
     ctx.stacked_rows = tuple(f.rows for f in frames)
-    return Frame(code, columns=columns, dtypes=_concat_dtypes(frames, columns), index=index,
+    return Frame(code, columns=columns, dtypes=dtypes, index=index,
                  labels_intact=ignore_index or len(frames) == 1 and frames[0].labels_intact,
                  sites=tuple(s for f in frames for s in f.sites))
 

@@ -477,7 +477,8 @@ def np_where(call: PandasCall, ctx: RuleContext) -> Value:
     blank of a True/False column (NaN in pandas' object column) is true for numpy and takes
     the first branch (fill_null(True)); whole numbers in both branches are int64 as in numpy
     (pl.lit(n, dtype=pl.Int64): Polars would make them Int32, which wraps around in
-    arithmetic).
+    arithmetic); np.nan beside integers or True/False makes a float64 array (cast to Float64),
+    whatever the condition.
     """
     if len(call.args) != 3 or call.kwargs:
         raise Unsupported("np.where with one argument returns positions")
@@ -500,8 +501,14 @@ def np_where(call: PandasCall, ctx: RuleContext) -> Value:
         # column of another type fails in pl.when, filled or not)
         test = test.method("fill_null", True)
     code = emit.when(test, then_code, other_code)
-    return derived_column(column, code, dtype=_common_dtype(then, other), name=None,
-                          others=[cond, then, other])
+    dtype = _common_dtype(then, other)
+    nan = [v for v in (then, other) if isinstance(v, Opaque) and isinstance(v.const, float)
+           and v.const != v.const]
+    if nan and {value_dtype(v) for v in (then, other) if v not in nan} <= {"int", "bool"}:
+        # numpy makes NaN beside integers (or True/False) a float64 array whatever the
+        # condition: Polars' null beside Int64 would stay Int64 (written 5, pandas 5.0)
+        code, dtype = code.method("cast", emit.atom("pl.Float64")), "float"
+    return derived_column(column, code, dtype=dtype, name=None, others=[cond, then, other])
 
 
 @rule("series.where", "series.mask")
