@@ -478,6 +478,56 @@ def test_read_csv_na_values_per_column_todo(read: str, reason: str, tallies: Pat
     assert reason in text, text
 
 
+# A sentinel written several ways. pandas (3.1) matches a column it parses as floats with the
+# number of each na_values entry, text or not ("-999" also empties -999.0 and -9.99e2); a column
+# it parses as integers ("n": ints and one blank) and a text column ("t") only with the texts
+# "-999" and "-999.0" (so "-0999" and "-999.00" stay there).
+SENTINEL_CSV = """\
+plot,depth,n,t
+P1,1.5,1,abc
+P2,-999,-0999,-999.0
+P3,-999.0,3,-999
+P4,2.5,4,-999.00
+P5,-9.99e2,,x
+"""
+
+SENTINELS = [
+    pytest.param('["-999"]', id="a list of text"),
+    pytest.param('"-999"', id="one text"),
+    pytest.param('["-999.0"]', id="text with a fraction"),
+    pytest.param('[-999]', id="a number"),
+    pytest.param('["-999", "?"]', id="with a token that is no number"),
+    pytest.param('{"depth": ["-999"]}', id="per column"),
+    pytest.param('{"depth": "-999.0", "n": "-999", "t": "-999"}', id="per column, every column"),
+]
+
+
+@pytest.mark.parametrize("na_values", SENTINELS)
+def test_read_csv_na_values_text_number_matches_every_spelling_with_data(
+        na_values: str, data: Path) -> None:
+    # pandas is the reference implementation
+    (data / "sentinel.csv").write_text(SENTINEL_CSV, encoding="utf-8")
+    differential(f"""
+        import pandas as pd
+        result = pd.read_csv("sentinel.csv", na_values={na_values})
+        mean = result["depth"].mean()
+        """, "result", "mean", data_dir=str(data))
+
+
+@pytest.mark.parametrize("na_values", [p for p in SENTINELS if "{" not in p.values[0]])
+def test_read_csv_na_values_text_number_matches_every_spelling_without_data(
+        na_values: str, data: Path) -> None:
+    # pandas is the reference implementation; without --data the float columns are chosen
+    # after the scan ("n" is Int64 there, as the read's confidence says)
+    (data / "sentinel.csv").write_text(SENTINEL_CSV, encoding="utf-8")
+    differential(f"""
+        import pandas as pd
+        df = pd.read_csv("sentinel.csv", na_values={na_values})
+        result = df[["plot", "depth", "t"]]
+        mean = df["depth"].mean()
+        """, "result", "mean")
+
+
 def test_read_csv_na_values_bool_left_is_a_todo(tallies: Path) -> None:
     # Polars cannot cast text to booleans: what is left of a column of True/False stays pandas
     (tallies / "flags.csv").write_text("ok,n\nTrue,1\n?,2\nFalse,3\n", encoding="utf-8")

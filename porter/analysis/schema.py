@@ -48,6 +48,9 @@ class FileSchema(dict[str, str]):
     # pandas guesses a date format from it (read_csv(parse_dates=...))
     first_texts: dict[str, str] | None = None
     first_texts_each: list[dict[str, str]] | None = None  # several files' (see merged)
+    # columns of whole numbers typed float only because a value is missing: pandas parses them
+    # as integers, and so does not match them with the numbers of na_values (see read_csv)
+    missing_ints: frozenset[str] = frozenset()
 
 
 def polars_code(dtype: pl.DataType) -> str | None:
@@ -85,6 +88,7 @@ def merged(schemas: list[FileSchema]) -> FileSchema | None:
     looked = [s.blank_lines for s in schemas]
     found.blank_lines = None if None in looked else any(looked)
     found.empty_rows = any(s.empty_rows for s in schemas)
+    found.missing_ints = frozenset().union(*(s.missing_ints for s in schemas))
     return found
 
 
@@ -110,8 +114,8 @@ class SchemaReader:
         try:
             if reader == "csv":
                 schema = pl.scan_csv(file, **scan_kwargs(options)).collect_schema()
-                schema, padded = _text_read_as_numbers(file, schema, options)
-                schema = _missing_ints_as_floats(file, schema, options)
+                schema, padded, padded_ints = _text_read_as_numbers(file, schema, options)
+                schema, missing_ints = _missing_ints_as_floats(file, schema, options)
             elif reader == "parquet":
                 schema = pl.scan_parquet(file).collect_schema()
             else:
@@ -129,6 +133,7 @@ class SchemaReader:
                 found.padded = {name: polars_code(dtype) for name, dtype in padded.items()}  # type: ignore[misc]
             found.blank_lines, found.empty_rows = _blank_lines(file, scan_kwargs(options))
             found.first_texts = _first_texts(file, schema, options)
+            found.missing_ints = frozenset(missing_ints | padded_ints)
         return found
 
 
@@ -154,20 +159,21 @@ def _first_texts(file: Path, schema: Any, options: dict[str, Any]) -> dict[str, 
     return found
 
 
-def _missing_ints_as_floats(file: Path, schema: Any, options: dict[str, Any]) -> dict[str, Any]:
+def _missing_ints_as_floats(file: Path, schema: Any, options: dict[str, Any]) -> tuple[dict[str, Any], set[str]]:
     """The schema with each inferred integer column that has a missing value read as Float64,
-    as pandas reads it (pandas has no missing integer in a default read: 33 becomes 33.0)."""
+    as pandas reads it (pandas has no missing integer in a default read: 33 becomes 33.0), and
+    the names of those columns."""
     given = options.get("dtype") if isinstance(options.get("dtype"), dict) else {}
     ints = [name for name, dtype in schema.items() if dtype.is_integer() and name not in given]
     found = dict(schema)
     if not ints or file.stat().st_size > SAMPLE_SCAN_LIMIT:
-        return found
+        return found, set()
     counts = pl.scan_csv(file, **scan_kwargs(options)).select(
         pl.col(ints).null_count()).collect().row(0, named=True)
     for name in ints:
         if counts[name]:
             found[name] = pl.Float64
-    return found
+    return found, {name for name in ints if counts[name]}
 
 
 # A number as pandas' CSV parser reads it once the spaces and tabs around it are stripped (a
@@ -178,9 +184,11 @@ PADDED_FLOAT = r"^[+-]?([0-9]+\.?[0-9]*|\.[0-9]+)([eE][+-]?[0-9]+)?$"
 PADDING = " \t"
 
 
-def _text_read_as_numbers(file: Path, schema: Any, options: dict[str, Any]) -> tuple[dict[str, Any], dict[str, Any]]:
+def _text_read_as_numbers(file: Path, schema: Any, options: dict[str, Any]) \
+        -> tuple[dict[str, Any], dict[str, Any], set[str]]:
     """The schema with the text columns pandas reads as numbers typed as pandas types them,
-    and those of them whose numbers Polars cannot read as they are (`padded`).
+    those of them whose numbers Polars cannot read as they are (`padded`), and those of these
+    that are whole numbers with a missing value (float in pandas).
 
     A column holding only missing values is float64 in pandas (Polars infers text). Numbers
     written with spaces or tabs around them, or with a plus sign (" 5", "+3", "2.50 "), are
@@ -191,7 +199,7 @@ def _text_read_as_numbers(file: Path, schema: Any, options: dict[str, Any]) -> t
     texts = [name for name, dtype in schema.items() if dtype == pl.String and name not in given]
     found = dict(schema)
     if not texts or file.stat().st_size > SAMPLE_SCAN_LIMIT:
-        return found, {}
+        return found, {}, set()
     frame = pl.scan_csv(file, **scan_kwargs(options))
     stripped = [pl.col(name).str.strip_chars(PADDING) for name in texts]
     row = frame.select(
@@ -201,6 +209,7 @@ def _text_read_as_numbers(file: Path, schema: Any, options: dict[str, Any]) -> t
         *[s.str.contains(PADDED_FLOAT).all().alias(f"\0float{i}") for i, s in enumerate(stripped)],
     ).collect().row(0, named=True)
     padded: dict[str, Any] = {}
+    missing_ints: set[str] = set()
     for i, name in enumerate(texts):
         if not row["\0rows"]:
             continue  # a file of a header only: pandas reads text columns too
@@ -208,9 +217,11 @@ def _text_read_as_numbers(file: Path, schema: Any, options: dict[str, Any]) -> t
             found[name] = pl.Float64
         elif row[f"\0int{i}"]:
             found[name] = padded[name] = pl.Float64 if row[f"\0nulls{i}"] else pl.Int64
+            if row[f"\0nulls{i}"]:
+                missing_ints.add(name)
         elif row[f"\0float{i}"]:
             found[name] = padded[name] = pl.Float64
-    return found, padded
+    return found, padded, missing_ints
 
 
 SAMPLE_SCAN_LIMIT = 256 * 1024 * 1024  # a larger sample is not read again for its blank lines or blanks

@@ -15,7 +15,8 @@ from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_DURATIONS_CONST
                                      DTYPES,
                                      NA_CONSTANT, NOT_DECOMPRESSED, PANDAS_NA_TOKENS,
                                      POLARS_CSV_COMPRESSION, compression_of, is_number, is_url,
-                                     na_value_texts, written_compression)
+                                     na_value_numbers, na_value_texts,
+                                     written_compression)
 from porter.analysis.schema import PADDING
 from porter.rules.datetimes import GUESS_REASON, Strptime, formatted_parse, guessed_parse, strptime_port
 from porter.rules.strings import LIST_STR, list_repr
@@ -58,7 +59,9 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: pandas' missing-value tokens (null_values), type inference over the whole file
     (infer_schema_length=None), sep, usecols in file order, dtype, parse_dates, na_values
-    (one value, a list, or a dict of columns: see _emptied_columns), nrows, skiprows (a count).
+    (one value, a list, or a dict of columns: see _emptied_columns; a number, given as text or
+    not, also in its other spellings in float columns: see _numbers_missing), nrows, skiprows
+    (a count).
     Caveats: index_col, header/names, converters, encodings other than UTF-8, a list of
     skipped rows and keep_default_na=False are TODOs; na_values per column needs --data (or a
     dtype= for those columns). With nrows, Polars still infers types from the whole file (0.9).
@@ -95,7 +98,6 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     nulls: object = emit.atom(NA_CONSTANT)
     if na_values is not None:
         extra = na_value_texts(na_values)
-        _lower_for_numbers(na_values, ctx)
         nulls = emit.binop(emit.atom(NA_CONSTANT), "+", [v for v in extra if v not in PANDAS_NA_TOKENS])
         options["na_values"] = extra
     kwargs["null_values"] = nulls
@@ -131,7 +133,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                   "whole file (a column whose later rows hold text is read as text)", 0.9)
 
     schema = ctx.input_schema("csv", _paths(source), options)
-    emptied: list[tuple[str, list[str], Code | None, str]] = []
+    emptied: list[tuple[str, list[str], Code | None, str, bool]] = []
     if per_column is not None:
         emptied = _emptied_columns(per_column, schema, overrides, dtypes, source, options, ctx)
         if emptied:  # read as text, so that no token is lost to a type Polars infers first
@@ -181,14 +183,21 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     if emptied:
         # pandas empties these columns' own tokens before it infers their types
         exprs = []
-        for column, tokens, cast, kind in emptied:
+        for column, tokens, cast, kind, by_value in emptied:
             expr = emit.col(column).method("replace", tokens, None)
-            exprs.append(expr.method("cast", cast) if cast is not None else expr)
+            expr = expr.method("cast", cast) if cast is not None else expr
+            # the column's numbers however they are written (see _numbers_missing)
+            numbers = na_value_numbers(tokens) if by_value else []
+            exprs.append(expr.method("replace", numbers, None) if numbers else expr)
             dtypes[column] = kind
         code = code.method("with_columns", *exprs)
     columns = tuple(schema) if schema and not getattr(schema, "partial", False) else None
     for column, kind in (schema or {}).items():
         dtypes.setdefault(column, kind)
+    numbers = na_value_numbers(na_values) if na_values is not None else []
+    if numbers:
+        code = _numbers_missing(code, numbers, dtypes if columns is not None else None,
+                                getattr(schema, "missing_ints", frozenset()))
     frame = Frame(code, columns=columns, dtypes=tuple(dtypes.items()))
 
     usecols = call.const_values("usecols", kinds=(str, int))
@@ -245,12 +254,24 @@ def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], 
     return code.method("cast", casts) if casts else code
 
 
-def _lower_for_numbers(values: list[Any], ctx: RuleContext) -> None:
-    if any(is_number(v) for v in values):
-        # pandas compares a numeric column with the number (-1.00 is missing too); Polars
-        # matches the text, so porter lists the usual spellings (-1, -1.0)
-        ctx.lower("a number in na_values is missing in pandas however it is written "
-                  "(-1.00); Polars matches the spellings listed", 0.9)
+def _numbers_missing(code: Code, numbers: list[float], dtypes: dict[str, str] | None,
+                     whole: frozenset[str]) -> Code:
+    """The scan with the numbers of `na_values` made missing in its columns of floats, however
+    the file writes them: pandas compares a column it parses as floats with them (-999.00 and
+    -9.99e2 are missing for na_values=["-999"]), where the scan matched the texts listed. A
+    column pandas parses as integers (`whole`: float here only for a missing value) is matched
+    by its text only, as pandas matches it ("-0999" stays). The columns are named when --data
+    gave their types, else chosen by type after the scan."""
+    if dtypes is None:
+        floats = emit.atom("pl.selectors.float()")
+        if whole:
+            floats = emit.binop(floats, "-", emit.call("pl.selectors.by_name", *sorted(whole),
+                                                       require_all=False))
+        return code.method("with_columns", floats.method("replace", numbers, None))
+    columns = [c for c, kind in dtypes.items() if kind == "float" and c not in whole]
+    if not columns:
+        return code
+    return code.method("with_columns", emit.call("pl.col", *columns).method("replace", numbers, None))
 
 
 def _na_values_per_column(call: PandasCall, ctx: RuleContext) -> dict[str, list[str]] | None:
@@ -269,7 +290,6 @@ def _na_values_per_column(call: PandasCall, ctx: RuleContext) -> dict[str, list[
             else [value]
         if not all(isinstance(v, str) or is_number(v) for v in values):
             raise ctx.todo(f"na_values[{column!r}]={value!r}: porter reads text or numbers here")
-        _lower_for_numbers(values, ctx)
         texts = [t for t in na_value_texts(values) if t not in PANDAS_NA_TOKENS]
         if texts:
             per_column[column] = texts
@@ -278,9 +298,10 @@ def _na_values_per_column(call: PandasCall, ctx: RuleContext) -> dict[str, list[
 
 def _emptied_columns(per_column: dict[str, list[str]], schema: Any, overrides: dict[str, Code],
                      dtypes: dict[str, str], source: Value, options: dict[str, Any],
-                     ctx: RuleContext) -> list[tuple[str, list[str], Code | None, str]]:
+                     ctx: RuleContext) -> list[tuple[str, list[str], Code | None, str, bool]]:
     """The columns whose own tokens are emptied after the scan: (name, tokens, the cast to the
-    type pandas gives the rest, porter's dtype name).
+    type pandas gives the rest, porter's dtype name, whether pandas parses it as floats and so
+    matches it with the numbers of the tokens too).
 
     Polars' null_values takes one text per column in a dict (and then no others for the other
     columns), so the scan keeps pandas' tokens for every column and reads these columns as
@@ -291,7 +312,7 @@ def _emptied_columns(per_column: dict[str, list[str]], schema: Any, overrides: d
     """
     if getattr(schema, "partial", False):
         raise ctx.todo("na_values per column for files of different layouts")
-    out: list[tuple[str, list[str], Code | None, str]] = []
+    out: list[tuple[str, list[str], Code | None, str, bool]] = []
     for column, tokens in per_column.items():
         if column in overrides:
             if schema is None:
@@ -300,7 +321,7 @@ def _emptied_columns(per_column: dict[str, list[str]], schema: Any, overrides: d
             elif column not in schema:
                 continue
             cast = overrides[column] if overrides[column].text != "pl.String" else None
-            out.append((column, tokens, cast, dtypes[column]))
+            out.append((column, tokens, cast, dtypes[column], dtypes[column] == "float"))
             continue
         if schema is None:
             raise ctx.todo(f"na_values per column ({column!r}): porter reads the column as text "
@@ -317,9 +338,10 @@ def _emptied_columns(per_column: dict[str, list[str]], schema: Any, overrides: d
                            "spaces around them or a plus sign")
         codes = getattr(after, "polars", None) or {}
         if kind == "str":
-            out.append((column, tokens, None, "str"))
+            out.append((column, tokens, None, "str", False))
         elif kind in ("int", "float") and codes.get(column):
-            out.append((column, tokens, emit.atom(codes[column]), kind))
+            out.append((column, tokens, emit.atom(codes[column]), kind,
+                        kind == "float" and column not in getattr(after, "missing_ints", ())))
         else:
             raise ctx.todo(f"na_values for column {column!r}: what is left reads as "
                            f"{kind or 'a type porter does not know'}, which porter does not "

@@ -342,17 +342,35 @@ def is_url(path: str) -> bool:
 
 
 def na_value_texts(values: list[Any]) -> list[str]:
-    """The texts pandas reads as missing for `na_values` (numbers in their usual spellings)."""
+    """The texts pandas reads as missing for `na_values`, as its reader spells them
+    (pandas.io.parsers' _stringify_na_values): the value as text and, when it reads as a
+    whole number, "-999.0" and "-999" too (whether it was given as 999, 999.0 or "999")."""
     texts: list[str] = []
     for value in values:
         spellings = [str(value)]
-        if isinstance(value, (int, float)) and not isinstance(value, bool):
+        try:
             number = float(value)
-            spellings.append(repr(number))
-            if number.is_integer():
-                spellings.append(str(int(number)))
+            if number == int(number):
+                spellings += [f"{int(number)}.0", str(int(number))]
+        except (TypeError, ValueError, OverflowError):
+            pass
         texts += [t for t in dict.fromkeys(spellings) if t not in texts]
     return texts
+
+
+def na_value_numbers(values: list[Any]) -> list[float]:
+    """The numbers pandas makes missing in a column it reads as numbers, however the file
+    writes them ("-999.00", "-9.99e2"): every value of `na_values` that float() reads, NaN
+    aside (pandas.io.parsers' _floatify_na_values), texts ("-999") as well as numbers."""
+    numbers: list[float] = []
+    for value in values:
+        try:
+            number = float(value)
+        except (TypeError, ValueError, OverflowError):
+            continue
+        if number == number and number not in numbers:
+            numbers.append(number)
+    return numbers
 
 
 def is_number(value: Any) -> bool:
