@@ -86,7 +86,8 @@ def test_ports(before: str, expected: str) -> None:
 
 
 TODOS = [
-    pytest.param('pd.to_datetime("2024-01-05")', "pd.to_datetime", id="a scalar stays on pandas"),
+    pytest.param('pd.to_datetime("2024-01-05 12:00", errors="coerce")', "pd.to_datetime",
+                 id="a scalar with errors= stays on pandas"),
     pytest.param('pd.to_datetime(["2024-01-05", "2024-01-06"])', "pd.to_datetime",
                  id="a list stays on pandas"),
     pytest.param('pd.to_datetime(df["raw"], format="mixed")', "pd.to_datetime", id="format mixed"),
@@ -1008,3 +1009,23 @@ def test_text_of_datetime_parts_follows_pandas_float_when_nat(expr: str) -> None
     frame = "full" if expr.startswith("full") else "df"
     result = differential(PARTS + f'{frame}["out"] = {expr}\nresult = {frame}\n')
     assert not result.todos, result.converted_text
+
+
+# pd.to_datetime of a date written in the script: a Timestamp read by pandas at convert time
+DATE_CONSTANTS = [
+    pytest.param('df["t"] >= pd.to_datetime("2024-03-01")', id="ISO date"),
+    pytest.param('df["t"] < pd.to_datetime("2024-06-30 12:00")', id="date and time"),
+    pytest.param('df["t"] > pd.to_datetime("03/01/2024")', id="month first, as pandas reads it"),
+    pytest.param('df["t"] <= pd.to_datetime("01.03.2024", format="%d.%m.%Y")', id="with a format"),
+    pytest.param('df["t"] - pd.to_datetime("2024-01-01")', id="a duration from it"),
+]
+
+
+@pytest.mark.parametrize("expr", DATE_CONSTANTS)
+def test_to_datetime_of_a_written_date_matches_pandas(expr: str) -> None:
+    result = differential(_calendar(expr), "result", "result_empty")
+    assert "to_pandas" not in result.converted_text, result.converted_text
+
+
+def test_to_datetime_of_today_stays_todo() -> None:
+    check_todo(CALENDAR_FRAME + 'result = df[df["t"] < pd.to_datetime("today")]\n', "pd.to_datetime")

@@ -259,15 +259,23 @@ def timestamp(call: PandasCall, ctx: RuleContext) -> Value:
     TODOs; Polars reads the datetime in the column's unit.
     """
     ctx.reject_unknown(call, "ts_input", positional=1)
-    text = call.const("ts_input", 0)
+    return _date_constant(call, call.const("ts_input", 0), None, ctx)
+
+
+def _date_constant(call: PandasCall, text: object, fmt: str | None, ctx: RuleContext) -> Value:
+    """A date written as text in the script, read by pandas itself at convert time (with
+    pd.to_datetime's format when one is given)."""
     if not isinstance(text, str):
         raise ctx.todo("only a date written as text is ported")
     if text.strip().lower() in ("now", "today"):
         raise ctx.todo(f"{text!r} is read when the script runs")
+    import warnings
     import pandas as pd
     try:
-        stamp = pd.Timestamp(text)
-    except (ValueError, TypeError):
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            stamp = pd.Timestamp(text) if call.name == "pd.Timestamp" else pd.to_datetime(text, format=fmt)
+    except (ValueError, TypeError, OverflowError):
         raise ctx.todo(f"{text!r} is not a date pandas can read") from None
     if stamp is pd.NaT:
         raise ctx.todo("NaT")
@@ -628,11 +636,18 @@ def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
     nanoseconds (0.9); other directives (%j) keep Polars' own parser, which also takes values
     pandas refuses (0.8); a second of 61 rolls over into the next minute in pandas and is
     missing here; a year in non-ASCII digits ("２024") and year 0000 in an ISO format (an error
-    in pandas even with errors="coerce") are missing here; a scalar, a list or a frame stays
-    on pandas.
+    in pandas even with errors="coerce") are missing here; a list or a frame stays on
+    pandas. A date written in the script (pd.to_datetime("2024-03-01"), format= allowed) is
+    the Timestamp pandas reads from it at convert time, as pd.Timestamp.
     """
     ctx.reject_unknown(call, "arg", "errors", "format", positional=1)
     column = call.arg("arg", 0)
+    if isinstance(column, Opaque) and isinstance(column.const, str) and not call.has("errors"):
+        # pd.to_datetime("2024-03-01"): a Timestamp, as pd.Timestamp("2024-03-01") is
+        fmt = call.const("format", None, None)
+        if fmt is not None and not isinstance(fmt, str):
+            raise ctx.todo("the format must be text")
+        return _date_constant(call, column.const, fmt, ctx)
     if not isinstance(column, Column):
         raise ctx.todo("only a column of a frame is ported; a scalar, a list or a frame "
                        "stays on pandas")
