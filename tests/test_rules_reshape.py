@@ -10,7 +10,7 @@ from __future__ import annotations
 import pytest
 
 from rule_checks import check_ports, check_todo
-from support import column_kinds, convert, differential, run
+from support import column_kinds, convert, differential, run, same_text
 
 # A missing key of each kind (None and NaN), unicode keys, a column key ("r") seen with one
 # index key only, a row ("é") whose other key is missing, NaN values, ties.
@@ -493,3 +493,18 @@ def test_a_pivoted_table_handed_to_pandas_keeps_its_columns_name(table, tmp_path
                          data_dir=str(tmp_path))
         run(result.converted_text)
         assert (tmp_path / f"{name}.csv").read_text() == expected, result.converted_text
+
+
+def test_pivot_table_count_of_a_float_column_is_float_when_a_cell_is_missing(tmp_path) -> None:
+    # count cells are integers, whatever the values' type: pandas makes every cell float
+    # when a combination has no row (2.0 and an empty cell), integers when none is missing
+    source = '''
+import pandas as pd
+df = pd.read_csv("data.csv")
+p = df.pivot_table(index="grp", columns="cat", values="v", aggfunc="count")
+p.to_csv("p.csv")
+print(p["A"].tolist())
+q = df[df["grp"] == "g2"].pivot_table(index="grp", columns="cat", values="v", aggfunc="count")
+q.to_csv("q.csv")
+'''
+    same_text(source, tmp_path, {"data.csv": "grp,cat,v\ng1,A,1.5\ng1,A,2.5\ng2,A,3.0\ng2,B,4.0\n"})

@@ -775,8 +775,9 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
         "agg", agg_expr(emit.col(values), how, value_dtype))
     if how in ("mean", "median", "min", "max"):
         code = code.method("drop_nulls", values)  # pandas drops a group whose value is missing
+    # count cells are integers whatever the values' type (a float column's too)
     code = pivot_sorted(code, columns, keys, values, fill,
-                        float_when_missing and value_dtype != "float")
+                        float_when_missing and (value_dtype != "float" or how == "count"))
     ctx.lower("the new columns are named by their values as text (pandas keeps the values)", 0.95)
     # pandas code given the table finds the columns by the key's values (pv[2024])
     int_labels = tuple(keys) if frame.dtype(columns) == "int" else None
