@@ -143,3 +143,27 @@ def test_tolist_of_a_list_column_gives_lists() -> None:
               'result = df["route"].str.split(";").tolist()\n'
               'shown = repr(result)\n')
     differential(source, "shown")
+
+
+# Series.to_dict(): pandas makes the dict from the collected labels and values
+TO_DICT = [
+    pytest.param('r = df["shop"].value_counts().to_dict()', id="value_counts"),
+    pytest.param('r = df.groupby("shop")["n"].max().to_dict()', id="groupby result"),
+    pytest.param('r = df.groupby("shop", dropna=False)["qty"].sum().to_dict()', id="missing key kept"),
+    pytest.param('r = df["t"].to_dict()', id="row numbers, a missing text"),
+    pytest.param('r = df["qty"].to_dict()', id="row numbers, NaN"),
+]
+
+
+@pytest.mark.parametrize("before", TO_DICT)
+def test_series_to_dict_matches_pandas(before: str) -> None:
+    frame = ('import numpy as np\nimport pandas as pd\n'
+             'df = pd.DataFrame({"shop": ["b", "a", None, "b", "é"], "qty": [1.5, np.nan, 3.0, 4.0, 2.0],\n'
+             '                   "n": [1, 2, 3, 4, 5], "t": ["x", None, "z", "y", "w"]})\n')
+    result = differential(frame + before + "\n", "r")
+    assert "TODO" not in result.converted_text, result.converted_text
+
+
+def test_series_to_dict_after_a_filter_stays_todo() -> None:
+    check_todo('import pandas as pd\ndf = pd.DataFrame({"n": [1, 2, 3]})\n'
+               'r = df[df["n"] > 1]["n"].to_dict()\n', "series.to_dict")

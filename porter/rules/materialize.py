@@ -5,6 +5,7 @@ These need the data, so they are where porter writes a collect.
 
 from __future__ import annotations
 
+from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import PandasCall, RuleContext
@@ -69,3 +70,35 @@ def frame_values(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.handover = True  # pandas' own array: object cells as pandas holds them
     return Scalar(frame.code.method("collect").method("to_pandas").method("to_numpy"), pytype="array")
 
+
+
+@rule("series.to_dict")
+def series_to_dict(call: PandasCall, ctx: RuleContext) -> Value:
+    """Series.to_dict() -> the collected labels and values made a dict by pandas:
+    frame.select(key, col).collect().to_pandas().set_index(key)[col].to_dict().
+
+    Handles: the key of a groupby or value_counts result (one key), or the row number of a
+    frame labelled 0..n-1; the values are pandas' own (an integer column with a missing value
+    is float, a missing value nan, dates Timestamps), as is each key. Only the labels and the
+    column cross to pandas, once, where the dict is made.
+    Caveats: labels of several keys (tuples in pandas) and a frame whose labels are no longer
+    0..n-1 are TODOs.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call)
+    frame = column.frame
+    name = column.name if isinstance(column.name, str) else None
+    expr = column.code.method("fill_null", False) if column.null_is_false else column.code
+    if len(frame.index) == 1 and name is not None and name not in frame.index:
+        key = frame.index[0]
+        value = name if expr.text == emit.col(name).text else expr.method("alias", name)
+        code = frame.code.method("select", key, value).method("collect") \
+            .method("to_pandas").method("set_index", key).index(name).method("to_dict")
+    elif not frame.index and frame.labels_intact:
+        code = _series(column).method("to_pandas").method("to_dict")
+    else:
+        raise ctx.todo("the row labels are several keys, or no longer 0..n-1: collect the label "
+                       "columns and the values and build the dict with zip")
+    ctx.handover = True  # pandas makes the dict: its own keys and values
+    return Scalar(code, pytype="dict")
