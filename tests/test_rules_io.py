@@ -528,6 +528,34 @@ def test_read_csv_na_values_text_number_matches_every_spelling_without_data(
         """, "result", "mean")
 
 
+# pandas (3.1) reads inf, -inf, +inf, Infinity in any case as float64 infinities (not " inf"
+# or "1.#INF"); Polars infers such a column as text. "flag" keeps the typed scan (booleans),
+# "padded" mixes an infinity with a number written with a plus sign and spaces.
+INFINITIES_CSV = """\
+pool,ratio,signed,padded,note,flag
+A,1.5,inf,+1,inf ,True
+B,Infinity,-Inf, 2,x,False
+C,2,+INFINITY,-infinity,1.#INF,True
+D,,nan,3,y,True
+"""
+
+
+@pytest.mark.parametrize("layout", [
+    pytest.param("", id="every column"),
+    pytest.param(', usecols=["pool", "ratio", "signed", "padded", "note", "flag"]', id="usecols"),
+])
+def test_read_csv_infinities_are_floats_with_data(layout: str, data: Path) -> None:
+    # pandas is the reference implementation
+    (data / "inf.csv").write_text(INFINITIES_CSV, encoding="utf-8")
+    differential(f"""
+        import pandas as pd
+        result = pd.read_csv("inf.csv"{layout})
+        result["r2"] = result["ratio"] * 2 + result["signed"] + result["padded"]
+        top = result["ratio"].max()
+        total = result["padded"].sum()
+        """, "result", "top", "total", data_dir=str(data))
+
+
 def test_read_csv_na_values_bool_left_is_a_todo(tallies: Path) -> None:
     # Polars cannot cast text to booleans: what is left of a column of True/False stays pandas
     (tallies / "flags.csv").write_text("ok,n\nTrue,1\n?,2\nFalse,3\n", encoding="utf-8")

@@ -177,10 +177,15 @@ def _missing_ints_as_floats(file: Path, schema: Any, options: dict[str, Any]) ->
 
 
 # A number as pandas' CSV parser reads it once the spaces and tabs around it are stripped (a
-# plus sign is allowed); narrower than pandas' (no inf, no digits past int64): a column with
-# other text stays text, as Polars reads it.
+# plus sign is allowed); narrower than pandas' (no digits past int64): a column with other
+# text stays text, as Polars reads it.
 PADDED_INT = r"^[+-]?[0-9]{1,18}$"
 PADDED_FLOAT = r"^[+-]?([0-9]+\.?[0-9]*|\.[0-9]+)([eE][+-]?[0-9]+)?$"
+# infinity as pandas' CSV parser reads it (inf, -Inf, +INFINITY: any case, no spaces around),
+# which Polars' reader infers as text but reads as a float when told the column is Float64
+INFINITY = r"(?i)^[+-]?inf(inity)?$"
+# a float Polars' reader reads as it is written (no plus sign, no spaces)
+PLAIN_FLOAT = r"^-?([0-9]+\.?[0-9]*|\.[0-9]+)([eE][+-]?[0-9]+)?$"
 PADDING = " \t"
 
 
@@ -193,7 +198,9 @@ def _text_read_as_numbers(file: Path, schema: Any, options: dict[str, Any]) \
     A column holding only missing values is float64 in pandas (Polars infers text). Numbers
     written with spaces or tabs around them, or with a plus sign (" 5", "+3", "2.50 "), are
     numbers in pandas and text in Polars: int64, or float64 when one is not whole or a value
-    is missing.
+    is missing. A column of numbers with inf, -inf or Infinity among them is float64 in pandas
+    (text in Polars' inference): typed Float64, which Polars' reader and cast read them as,
+    and scanned as text and stripped only when a number in it is padded too.
     """
     given = options.get("dtype") if isinstance(options.get("dtype"), dict) else {}
     texts = [name for name, dtype in schema.items() if dtype == pl.String and name not in given]
@@ -207,6 +214,10 @@ def _text_read_as_numbers(file: Path, schema: Any, options: dict[str, Any]) \
         *[pl.col(name).null_count().alias(f"\0nulls{i}") for i, name in enumerate(texts)],
         *[s.str.contains(PADDED_INT).all().alias(f"\0int{i}") for i, s in enumerate(stripped)],
         *[s.str.contains(PADDED_FLOAT).all().alias(f"\0float{i}") for i, s in enumerate(stripped)],
+        *[(pl.col(name).str.contains(INFINITY) | s.str.contains(PADDED_FLOAT)).all()
+          .alias(f"\0inf{i}") for i, (name, s) in enumerate(zip(texts, stripped))],
+        *[pl.col(name).str.contains(f"{INFINITY}|{PLAIN_FLOAT}").all().alias(f"\0plain{i}")
+          for i, name in enumerate(texts)],
     ).collect().row(0, named=True)
     padded: dict[str, Any] = {}
     missing_ints: set[str] = set()
@@ -220,6 +231,10 @@ def _text_read_as_numbers(file: Path, schema: Any, options: dict[str, Any]) \
             if row[f"\0nulls{i}"]:
                 missing_ints.add(name)
         elif row[f"\0float{i}"]:
+            found[name] = padded[name] = pl.Float64
+        elif row[f"\0plain{i}"]:
+            found[name] = pl.Float64
+        elif row[f"\0inf{i}"]:
             found[name] = padded[name] = pl.Float64
     return found, padded, missing_ints
 
