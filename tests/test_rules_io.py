@@ -556,6 +556,25 @@ def test_read_csv_infinities_are_floats_with_data(layout: str, data: Path) -> No
         """, "result", "top", "total", data_dir=str(data))
 
 
+def test_read_csv_header_only_sample_types_nothing(data: Path) -> None:
+    # pandas is the reference implementation. The --data sample is an empty export (a header
+    # only: pandas reads object columns, Polars text); the script later reads a file with rows,
+    # whose numbers must not be read as text because the sample had none
+    sample = data / "sample"
+    sample.mkdir()
+    (sample / "day.csv").write_text("site,v\n", encoding="utf-8")
+    (data / "day.csv").write_text("site,v\nA,1.5\nB,2\n", encoding="utf-8")
+    result = differential("""
+        import pandas as pd
+        df = pd.read_csv("day.csv")
+        df["v2"] = df["v"] * 2
+        result = df
+        total = df["v"].sum()
+        """, "result", "total", data_dir=str(sample))
+    site = next(s for s in result.sites if s.key == "pd.read_csv")
+    assert site.confidence <= 0.7 and "no rows" in site.message, site.message
+
+
 def test_read_csv_na_values_bool_left_is_a_todo(tallies: Path) -> None:
     # Polars cannot cast text to booleans: what is left of a column of True/False stays pandas
     (tallies / "flags.csv").write_text("ok,n\nTrue,1\n?,2\nFalse,3\n", encoding="utf-8")

@@ -51,6 +51,9 @@ class FileSchema(dict[str, str]):
     # columns of whole numbers typed float only because a value is missing: pandas parses them
     # as integers, and so does not match them with the numbers of na_values (see read_csv)
     missing_ints: frozenset[str] = frozenset()
+    # a file of a header only: pandas reads every column as object (no type), Polars as text;
+    # its column types say nothing of a file with rows (`polars` is None then)
+    no_rows: bool = False
 
 
 def polars_code(dtype: pl.DataType) -> str | None:
@@ -89,6 +92,7 @@ def merged(schemas: list[FileSchema]) -> FileSchema | None:
     found.blank_lines = None if None in looked else any(looked)
     found.empty_rows = any(s.empty_rows for s in schemas)
     found.missing_ints = frozenset().union(*(s.missing_ints for s in schemas))
+    found.no_rows = any(s.no_rows for s in schemas)
     return found
 
 
@@ -134,6 +138,9 @@ class SchemaReader:
             found.blank_lines, found.empty_rows = _blank_lines(file, scan_kwargs(options))
             found.first_texts = _first_texts(file, schema, options)
             found.missing_ints = frozenset(missing_ints | padded_ints)
+            found.no_rows = _no_rows(file, options)
+            if found.no_rows:
+                found.polars = None
         return found
 
 
@@ -157,6 +164,13 @@ def _first_texts(file: Path, schema: Any, options: dict[str, Any]) -> dict[str, 
         if values:
             found[name] = values[0]
     return found
+
+
+def _no_rows(file: Path, options: dict[str, Any]) -> bool:
+    """Whether the file has a header and no rows (not looked at past SAMPLE_SCAN_LIMIT)."""
+    if file.stat().st_size > SAMPLE_SCAN_LIMIT:
+        return False
+    return pl.scan_csv(file, **scan_kwargs(options)).select(pl.len()).collect().item() == 0
 
 
 def _missing_ints_as_floats(file: Path, schema: Any, options: dict[str, Any]) -> tuple[dict[str, Any], set[str]]:

@@ -17,7 +17,7 @@ from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_DURATIONS_CONST
                                      POLARS_CSV_COMPRESSION, compression_of, is_number, is_url,
                                      na_value_numbers, na_value_texts,
                                      written_compression)
-from porter.analysis.schema import PADDING
+from porter.analysis.schema import PADDING, FileSchema
 from porter.rules.datetimes import GUESS_REASON, Strptime, formatted_parse, guessed_parse, strptime_port
 from porter.rules.strings import LIST_STR, list_repr
 from porter.translate import handover
@@ -138,6 +138,16 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         emptied = _emptied_columns(per_column, schema, overrides, dtypes, source, options, ctx)
         if emptied:  # read as text, so that no token is lost to a type Polars infers first
             kwargs["schema_overrides"] = {**overrides, **{c: emit.atom("pl.String") for c, *_ in emptied}}
+    if getattr(schema, "no_rows", False):
+        # the types read from a file of a header only say nothing (every column is text to
+        # Polars); pandas reads such columns as object: a sum is 0 and max/mean NaN there, text
+        # here (a sum or a mean fails). The types of a file with rows are inferred at run time.
+        ctx.lower("the --data file has a header and no rows: pandas reads every column of "
+                  "such a file as object (a sum is 0, max and mean NaN, arithmetic works), "
+                  "Polars as text (a sum, a mean or arithmetic fails); porter does not know "
+                  "the types of a file with rows, Polars infers them when it reads one", 0.7)
+        schema = FileSchema({c: "other" for c in schema})  # type: ignore[union-attr]
+        schema.no_rows = True
     exact = getattr(schema, "polars", None)
     if exact and "" not in exact:
         # --data gave the file: the scan is told the types porter read (inferring them over
@@ -193,7 +203,8 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         code = code.method("with_columns", *exprs)
     columns = tuple(schema) if schema and not getattr(schema, "partial", False) else None
     for column, kind in (schema or {}).items():
-        dtypes.setdefault(column, kind)
+        if kind != "other":
+            dtypes.setdefault(column, kind)
     numbers = na_value_numbers(na_values) if na_values is not None else []
     if numbers:
         code = _numbers_missing(code, numbers, dtypes if columns is not None else None,

@@ -482,7 +482,8 @@ class Evaluator:
             elif isinstance(receiver, (Frame, Column)):
                 self.note_labels_read(receiver if isinstance(receiver, Frame) else receiver.frame)
             return
-        if key not in _ALIGNING and not (key == "pd.concat" and _side_by_side(call)):
+        if key not in _ALIGNING and not (key == "pd.concat" and _side_by_side(call)) \
+                and not _joins_on_labels(key, call):
             return
         given = [call.receiver, *call.args, *call.kwargs.values()]
         given = [x for v in given for x in (v.items if isinstance(v, Items) else (v,))]  # concat([a, b])
@@ -899,6 +900,12 @@ class Evaluator:
                 and not (key == "frame.apply" and self.rows_without_labels(call)):
             self.note_handed_over(call.receiver)
             whole = self.pandas_throughout(call.receiver, node)
+            if call.receiver is None and _joins_on_labels(key, call):
+                # pd.merge(a, b, left_index=True, ...): the frames it is given are read by label
+                for given in (*call.args, *call.kwargs.values()):
+                    if isinstance(given, (Frame, Column)):
+                        self.note_handed_over(given)
+                        whole = whole or self.pandas_throughout(given, node)
             if whole is not None:
                 # a frame no statement names, filtered or sorted on the way: its labels are
                 # pandas' only if pandas runs the whole expression from the frames it reads
@@ -910,7 +917,9 @@ class Evaluator:
         if (call.receiver is None and entry is not None and entry.extra.get("returns") == "frame"
                 and not self.services.inside_from_pandas(node)
                 and MIXED_COLUMN not in reason  # an object column of mixed values: no Polars type
-                and not {"chunksize", "iterator"} & set(call.kwargs)):  # those give chunks
+                and not {"chunksize", "iterator"} & set(call.kwargs)  # those give chunks
+                # pl.from_pandas drops the row labels: only labels 0..n-1 may be dropped
+                and _labels_from_zero(key, call)):
             code = emit.pl("from_pandas", fallback).method("lazy")
             return Frame(code, sites=sites)
         return PandasValue(fallback, sites=sites, rows=_rows_kept(key, call))
@@ -1173,6 +1182,44 @@ def _rows_kept(key: str, call: PandasCall) -> int | None:
     if any((v.frame.rows if isinstance(v, Column) else v.rows) != frame.rows for v in inputs):
         return None  # another frame's Series: pandas aligns it on labels porter does not keep
     return frame.rows
+
+
+def _joins_on_labels(key: str, call: PandasCall) -> bool:
+    """A merge whose `left_index` or `right_index` may be true: it pairs rows by label."""
+    return key in ("pd.merge", "pd.merge_asof", "frame.merge") \
+        and any(not (isinstance(v, Opaque) and v.is_const and v.const is False)
+                for k, v in call.kwargs.items() if k in ("left_index", "right_index"))
+
+
+def _labels_from_zero(key: str, call: PandasCall) -> bool:
+    """Whether the frame a TODO'd pandas function returns is labelled 0..n-1, so that it can
+    come back to Polars (pl.from_pandas keeps no labels): not `pd.melt(ignore_index=False)`
+    (each row's label repeated per column melted), a merge on the index (one side's labels),
+    a read with `index_col` or a JSON layout whose keys are labels, nor `pd.get_dummies` of
+    a frame or Series whose labels a filter or sort made the original row numbers (or that
+    porter does not know)."""
+    kwargs = call.kwargs
+
+    def literal(name: str, position: int | None, default: object) -> object:
+        if not call.has(name, position):
+            return default
+        value = call.arg(name, position)
+        return value.const if isinstance(value, Opaque) and value.is_const else MISSING
+
+    if key == "pd.melt":
+        return literal("ignore_index", 6, True) is True
+    if key in ("pd.merge", "pd.merge_asof"):
+        return all(literal(name, None, False) is False for name in ("left_index", "right_index"))
+    if key.startswith("pd.read_"):
+        orient = literal("orient", None, None)
+        return "index_col" not in kwargs and orient in (None, "records", "values", "table")
+    if key == "pd.get_dummies":
+        data = call.args[0] if call.args else kwargs.get("data")
+        if isinstance(data, PandasValue):
+            data = data.frame
+        frame = data if isinstance(data, Frame) else data.frame if isinstance(data, Column) else None
+        return frame is not None and frame.labels_intact and not frame.index
+    return True
 
 
 def _row_wise(call: PandasCall) -> bool:
