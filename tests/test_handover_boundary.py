@@ -1000,3 +1000,30 @@ def test_an_aggregation_with_lists_reaches_pandas_with_two_levels_of_columns(lin
     text = differential("import pandas as pd\ndf = pd.read_csv(\"cargo.csv\")\n" + lines + "\n",
                         data_dir=".").converted_text
     assert "frame.set_axis(frame.columns.map(" in text
+
+
+@pytest.mark.parametrize("made", [
+    # each row's label repeated once per column melted
+    'pd.melt(df, id_vars=["berth"], value_vars=["tons", "crates"], ignore_index=False)',
+    # a join on the labels, of the last rows (labels 5, 6, 7) with all of them
+    'pd.merge(df.tail(3), df[["tons"]], left_index=True, right_index=True, suffixes=("", "_r"))',
+])
+def test_a_frame_pandas_returns_with_labels_of_its_own_keeps_them(made: str) -> None:
+    # pl.from_pandas would drop them: the frame stays pandas
+    both(f"""
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        m = {made}
+        result = m.reset_index()
+        labels = list(m.index)
+    """, "result", "labels")
+
+
+def test_a_melt_that_renumbers_its_rows_comes_back_to_polars() -> None:
+    text = both("""
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        m = pd.melt(df, id_vars=["berth"], value_vars=["tons", "crates"], ignore_index=True, col_level=0)
+        result = m.reset_index()
+    """)
+    assert "pl.from_pandas(" in text
