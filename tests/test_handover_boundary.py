@@ -1027,3 +1027,21 @@ def test_a_melt_that_renumbers_its_rows_comes_back_to_polars() -> None:
         result = m.reset_index()
     """)
     assert "pl.from_pandas(" in text
+
+
+@pytest.mark.parametrize("uses", [
+    'df.loc[m, "tons"] = 0\ndf.loc[~m, "crates"] = 1\n',
+    'df.loc[m, "tons"] = 0\ndf.loc[m, "crates"] = 1\nresult = [int(m.sum()), df.loc[m, "berth"].tolist()]\n',
+    'df.loc[m, "tons"] += df["crates"]\ndf.loc[~m, "crates"] *= 2\n',
+])
+def test_a_mask_reused_after_a_column_it_reads_is_overwritten_keeps_its_values(uses: str) -> None:
+    # pandas computed m before the first line overwrote "tons": it keeps those values
+    result = differential(f"""
+import pandas as pd
+df = pd.read_csv("cargo.csv")
+m = (df["crates"] > 1) & df["tons"].notna()
+{uses}
+frame = df
+""", *(("frame", "result") if "result" in uses else ("frame",)))
+    messages = " ".join(site.message for site in result.sites)
+    assert "column 'crates' was overwritten" not in messages

@@ -209,6 +209,11 @@ def check_same_rows(column: Column, frame: Frame) -> None:
             "reordered): pandas aligns it on the index, which has no expression form"
         )
     for name, version in column.versions:
+        if frame.version(name) != version and column.frame.code.text != frame.code.text:
+            # a Series kept as a frame of its own (engine.series_of_its_own): its values
+            # are those pandas computed before a column it reads was overwritten
+            raise Unsupported("the Series was computed before a column it reads was "
+                              "overwritten, and pandas keeps the values it had then")
         if frame.version(name) != version:
             raise Unsupported(
                 f"column {name!r} was overwritten after this Series was taken from it"

@@ -1027,8 +1027,11 @@ class _Walker:
         lines = []
         for held, value in list(env.items()):
             if held in read and held != name and isinstance(value, Column) \
-                    and value.binding is not None and value.frame.code.text == name \
-                    and isinstance(env.get(name), Frame):
+                    and value.binding is not None \
+                    and (value.frame.code.text == name and isinstance(env.get(name), Frame)
+                         # a Series kept as a frame of its own (`m = df.select(...)`, read
+                         # after a column it reads was overwritten): a LazyFrame to pandas
+                         or value.frame.code.text == held):
                 lines.append(f"{held} = {handover.to_pandas(value).text}")
                 env[held] = PandasValue(emit.atom(held))
         return lines
