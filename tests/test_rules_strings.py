@@ -704,3 +704,20 @@ def test_text_of_lengths_with_nullable_integers_in_the_script_is_flagged() -> No
     result = convert(LENGTHS + 'df["q"] = df["x"].astype("Int64")\n'
                      'df["out"] = df["berth"].str.len().astype(str)\n')
     assert any(s.confidence <= 0.9 and "nullable" in s.message for s in result.sites)
+
+
+@pytest.mark.parametrize("label", [
+    pytest.param('str(int(x)) if x == x else "?"', id="str of int"),
+    pytest.param('f"{int(x)}" if pd.notna(x) else ""', id="f-string of int"),
+    pytest.param('"P" + str(int(x)) if x == x else "?"', id="concatenated"),
+])
+def test_str_of_int_in_a_lambda_is_a_python_int(label: str) -> None:
+    # pandas is the reference implementation: int(x) of one value is a Python int, written
+    # "1" even though the column holds floats because a value is missing
+    differential(f"""
+        import numpy as np
+        import pandas as pd
+        df = pd.DataFrame({{"n": [1, np.nan, 3]}})
+        df["lbl"] = df["n"].apply(lambda x: {label})
+        result = df
+        """)

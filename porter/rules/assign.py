@@ -20,7 +20,7 @@ from porter.rules.io_options import datetime_text, duration_text
 from porter.rules.ops import int64_lit
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
-    with_column_updates,
+    mark_float_ints, with_column_updates,
 )
 from porter.rules.strings import LIST_STR, expanded_columns, list_repr
 from porter.translate.handover import makes_periods, orders_categories, text_categories
@@ -503,7 +503,11 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
         return with_columns(frame, [(n, *value_expr(c, frame, ctx)) for n, c in zip(names, columns)])
     if isinstance(key, Opaque) and isinstance(key.const, str):
         code, dtype = value_expr(value, frame, ctx)
-        return with_columns(frame, [(key.const, code, dtype)])
+        result = with_columns(frame, [(key.const, code, dtype)])
+        if isinstance(value, Column) and value.float_int is not None:
+            # still float64 in pandas when a value went missing (lost_float_ints)
+            result = mark_float_ints(result, [key.const], value.float_int)
+        return result
     if isinstance(key, Opaque) and isinstance(key.const, list) and key.const \
             and all(isinstance(k, str) for k in key.const) \
             and isinstance(value, Opaque) and value.is_const \

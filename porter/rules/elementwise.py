@@ -317,7 +317,7 @@ def element_cast(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: str() of a boolean is True/False, of a missing value "nan", of a datetime
     "2024-01-05 00:00:00" (microseconds only when there are some) and of NaT "NaT", as Python
     writes them; an integer column holding a missing value reaches str() as floats ("7.0",
-    "nan"), decided over the whole column at run time.
+    "nan"), decided over the whole column at run time, but int(x) is a Python int ("7").
     Caveats: Python writes some floats differently (1e-05, Polars 0.00001) (0.85).
     """
     element = _element(call)
@@ -336,9 +336,10 @@ def element_cast(call: PandasCall, ctx: RuleContext) -> Value:
         if element.dtype in (None, "float"):
             ctx.lower("Python's str() writes some floats (1e-05) and, without the column type, "
                       "booleans (True) and dates differently from Polars' text", 0.85)
-        if element.dtype == "int":
+        if element.dtype == "int" and not element.python_int:
             # pandas holds an integer column with a missing value as floats: str() writes
-            # "7.0", and "nan" for the missing value (decided over the whole column)
+            # "7.0", and "nan" for the missing value (decided over the whole column); int(x)
+            # is a Python int, "7" whatever the column holds
             from porter.rules.assign import int_text
             code = int_text(element, element.code, ctx).method("fill_null", "nan")
             return _value(element, code, dtype="str")
@@ -348,7 +349,8 @@ def element_cast(call: PandasCall, ctx: RuleContext) -> Value:
     target = {"int": "pl.Int64", "float": "pl.Float64"}[call.name]
     if call.name == "int":
         ctx.lower("int() of a missing value raises in pandas; Polars keeps it missing", 0.95)
-    return _value(element, element.code.method("cast", emit.atom(target)), dtype=call.name)
+    return replace(_value(element, element.code.method("cast", emit.atom(target)), dtype=call.name),
+                   python_int=call.name == "int")
 
 
 @rule("element.round", "element.abs")

@@ -102,6 +102,7 @@ class Column(Value):
     refs: frozenset[str] = field(default=frozenset(), kw_only=True)
     versions: tuple[tuple[str, int], ...] = field(default=(), kw_only=True)
     element: bool = field(default=False, kw_only=True)  # the parameter of a lambda: one value
+    python_int: bool = field(default=False, kw_only=True)  # int() of one value: a Python int
     binding: int | None = field(default=None, kw_only=True)  # the assignment that named it
 
 
