@@ -157,7 +157,8 @@ PORTS = [
         id="concat join=inner keeps the shared columns"),
     pytest.param(
         'result = pd.concat([right, left], sort=True)',
-        'pl.concat([right, left], how="diagonal_relaxed").select("k", "lv", "rv")',
+        '''pl.concat([right, left], how="diagonal_relaxed").select("k", "lv", "rv")
+               .with_columns(pl.col(["lv", "rv"]).cast(pl.Float64))''',
         id="concat sort=True sorts the columns"),
     pytest.param(
         '''

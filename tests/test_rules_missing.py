@@ -348,3 +348,54 @@ df.to_csv("o.csv", index=False)
 print(df["n1"].tolist(), df["n2"].astype(str).tolist())
 '''
     same_text(source, tmp_path, {"data.csv": "a,x\n5,\n5,2.0\n-2,3.0\n0,4.0\n"})
+
+
+def _site(result, key):
+    found = [s for s in result.sites if s.key == key]
+    assert found, result.sites
+    return found[-1]
+
+
+@pytest.mark.parametrize("made", ['df["a"].where(df["a"] > 2)', 'df["a"].mask(df["a"] > 5)'],
+                         ids=["where", "mask"])
+def test_fillna_of_ints_pandas_made_float_by_a_missing_value_is_lowered(tmp_path, made) -> None:
+    # where()/mask() without other make an int column float64 in pandas only when a value is
+    # left out (an all-True condition keeps int64): Polars keeps Int64 with nulls, written as
+    # pandas writes it while they remain; fillna removes them, so that site says so
+    data = {"data.csv": "a,b\n5,1\n-2,2\n9,3\n"}
+    kept = same_text(f'''
+import pandas as pd
+df = pd.read_csv("data.csv")
+df["w"] = {made}
+df["t"] = df["w"].astype(str)
+df.to_csv("o.csv", index=False)
+print(df["w"].tolist())
+''', tmp_path, data)
+    assert all(s.confidence == 1.0 for s in kept.sites if s.key in ("series.where", "series.mask"))
+    filled = convert(f'''
+import pandas as pd
+df = pd.DataFrame({{"a": [5, -2, 9], "b": [1, 2, 3]}})
+df["w"] = {made}.fillna(0)
+sub = df.dropna()
+''')
+    site = _site(filled, "series.fillna")
+    assert site.confidence <= 0.9 and "float64" in site.message and "3.0" in site.message
+
+
+def test_dropna_after_a_left_merge_made_ints_float_is_lowered(tmp_path) -> None:
+    # the unmatched row's int column is float64 in pandas; dropping that row leaves pandas'
+    # floats (10.0) where Polars' Int64 has no null left (10): the filter says so
+    source = '''
+import pandas as pd
+a = pd.DataFrame({"k": ["a", "b", "c"], "v": [1, 2, 3]})
+b = pd.DataFrame({"k": ["a", "c"], "w": [10, 30]})
+m = a.merge(b, on="k", how="left")
+m["ws"] = m["w"].astype(str)
+ok = m.dropna()
+sub = m[m["w"].notna()]
+'''
+    result = convert(source)
+    assert _site(result, "frame.dropna").confidence <= 0.9
+    assert "`w`" in _site(result, "frame.getitem.mask").message
+    assert _site(result, "series.astype").confidence > 0.9  # decided from the nulls at run time
+    differential(source, "m")

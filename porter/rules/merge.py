@@ -190,7 +190,10 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower(f"{', '.join(changing)}: pandas makes an int column float (a True/False one "
                   "object) when a row finds no match, which depends on the data; Polars keeps "
                   "its type with missing values", 0.95)
-        dtypes = {c: t for c, t in dtypes.items() if c not in changing}
+        # an int column stays "int", marked: its text is decided at run time from the nulls
+        dtypes = {c: t for c, t in dtypes.items() if c not in changing or t == "int"}
+    float_ints = tuple((c, "the merge left a row unmatched") for side in optional
+                       for c, t in side.dtypes.items() if t == "int" and c not in side.keys)
     if indicator is not None:
         # pandas' Categorical of where each row came from, its categories in this order
         left, right = (emit.col(m).method("is_not_null") for m in _SIDE_MARKS)
@@ -202,7 +205,7 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
         if columns is not None:
             columns = (*columns, indicator)
             dtypes[indicator] = "enum"
-    return Frame(code, columns=columns, labels_intact=True,
+    return Frame(code, columns=columns, labels_intact=True, float_ints=float_ints,
                  index=lside.index if lside.index and rside.index else (),
                  dtypes=tuple((c, dtypes[c]) for c in columns if c in dtypes)
                  if columns is not None else tuple(dtypes.items()))

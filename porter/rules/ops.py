@@ -519,8 +519,9 @@ def where_mask(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: a condition that met a missing value is False (where replaces the value, mask
     keeps it), as pandas' comparisons give False; `other` left out is a missing value;
     `other` a value or a column of the same rows.
-    Caveats: an int column given missing values stays int in Polars (float in pandas; the
-    values match); a condition that is not a column (a callable, an array), `other` of another
+    Caveats: an int column given missing values stays Int64 with nulls in Polars (float64 in
+    pandas when a value is left out, which depends on the data: written as floats while the
+    nulls remain; a later fillna, dropna or filter is lowered to 0.9); a condition that is not a column (a callable, an array), `other` of another
     kind than the column (text into numbers) and True/False columns given missing values
     (an object column in pandas) are TODOs.
     """
@@ -561,7 +562,12 @@ def where_mask(call: PandasCall, ctx: RuleContext) -> Value:
     dtype = column.dtype if missing else _common_dtype(column, other)
     if not missing and {value_dtype(other), column.dtype} == {"int", "float"}:
         dtype = "float"
-    return derived_column(column, code, dtype=dtype, others=[cond, *([other] if not missing else [])])
+    result = derived_column(column, code, dtype=dtype, others=[cond, *([other] if not missing else [])])
+    if missing and column.dtype == "int":
+        # float64 in pandas when the condition leaves a value out (not when it keeps every
+        # one): Polars keeps Int64 with nulls, which later steps read (lost_float_ints)
+        result = replace(result, float_int=f"{call.name}() left a value missing")
+    return result
 
 
 def _branch(value: Value, ctx: RuleContext, frame: Frame) -> Code:

@@ -240,6 +240,7 @@ def with_column_updates(frame: Frame, code: Code, updates: dict[str, str | None]
         columns = columns + tuple(c for c in updates if c not in columns)
     dtypes = dict(frame.dtypes)
     versions = dict(frame.versions)
+    frame = replace(frame, float_ints=tuple(m for m in frame.float_ints if m[0] not in updates))
     for name, dtype in updates.items():
         if dtype is None:
             dtypes.pop(name, None)
@@ -265,7 +266,70 @@ def column_of(frame: Frame, name: str, code: Code | None = None) -> Column:
         dtype=frame.dtype(name),
         refs=frozenset({name}),
         versions=((name, frame.version(name)),),
+        float_int=dict(frame.float_ints).get(name),
     )
+
+
+# -- integer columns pandas holds as float64 when a value went missing --------------------------
+#
+# Whether pandas turned an int column float64 can depend on the data (a merge that left a row
+# unmatched, where() without other, dt.year of NaT): a lazy plan cannot pick its type by value,
+# so Polars keeps Int64 with nulls and porter decides the text at run time from those nulls
+# (PANDAS_CSV_INTS, astype(str), printing), which is what pandas shows while they remain. A
+# step that removes them removes the evidence: there porter lowers the site's confidence,
+# saying so, and the mark goes.
+
+# steps that fill the missing values of a column or frame (the rows stay)
+_FILLS = frozenset({"series.fillna", "frame.fillna", "series.ffill", "series.bfill",
+                    "frame.ffill", "frame.bfill", "series.combine_first", "series.interpolate"})
+# reductions whose result is a number of the column's type (pandas' is a float)
+_REDUCTIONS = frozenset({"series.sum", "series.min", "series.max", "series.prod",
+                         "series.median", "series.cumsum", "series.cummax", "series.cummin"})
+# steps that give a frame other rows but keep every row
+_KEEP_ROWS = frozenset({"frame.sort_values", "frame.sort_index", "frame.reset_index",
+                        "frame.copy"})
+
+
+def float_int_reason(names: Sequence[str], why: str) -> str:
+    listed = ", ".join(f"`{n}`" for n in names)
+    return (f"pandas holds {listed} as float64 when {why}; once this step fills or drops the "
+            "missing values, pandas still writes 3.0 where this writes 3")
+
+
+def lost_float_ints(key: str, call: PandasCall, result: Value, ctx: RuleContext) -> Value:
+    """`result` of the rule for `key`: where the call removes the missing values that made
+    pandas hold a marked int column as float64, the site's confidence is lowered and the mark
+    cleared; an expression of a marked column that keeps its values (arithmetic) keeps it."""
+    receiver = call.receiver
+    if isinstance(receiver, Column) and receiver.float_int is not None:
+        name = receiver.name or "the column"
+        if key in _FILLS or key in _REDUCTIONS \
+                or isinstance(result, Column) and result.frame.rows != receiver.frame.rows:
+            ctx.lower(float_int_reason([name], receiver.float_int), 0.9)
+            return replace(result, float_int=None) if isinstance(result, Column) else result
+        if isinstance(result, Column) and result.float_int is None and result.dtype in ("int", None) \
+                and result.frame.rows == receiver.frame.rows:
+            return replace(result, float_int=receiver.float_int)
+        return result
+    frame = receiver if isinstance(receiver, Frame) else \
+        receiver.frame if isinstance(receiver, Grouped) else None
+    if frame is None or not frame.float_ints or not isinstance(result, Frame) \
+            or not result.float_ints or key in _KEEP_ROWS:
+        return result
+    if key in _FILLS or result.rows != frame.rows or isinstance(receiver, Grouped):
+        # the marks the frame had (not those the step makes: a merge marks its own)
+        marks = [(n, why) for n, why in result.float_ints if (n, why) in frame.float_ints
+                 and (result.columns is None or n in result.columns)]
+        for why in dict.fromkeys(why for _, why in marks):
+            ctx.lower(float_int_reason([n for n, w in marks if w == why], why), 0.9)
+        return replace(result, float_ints=tuple(m for m in result.float_ints if m not in marks))
+    return result
+
+
+def mark_float_ints(frame: Frame, names: Sequence[str], why: str) -> Frame:
+    """`frame` with the int columns `names` marked as float64 in pandas when `why`."""
+    kept = tuple(m for m in frame.float_ints if m[0] not in names)
+    return replace(frame, float_ints=kept + tuple((n, why) for n in names))
 
 
 def derived_column(base: Column, code: Code, *, dtype: str | None = None,

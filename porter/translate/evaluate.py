@@ -23,7 +23,9 @@ from porter.mapping import MappingTable
 from porter.model import MappingEntry, SiteDraft
 from porter.translate import handover
 from porter.translate.rewrite import BINARY_OPS, ChildRewriter, precedence
-from porter.translate.context import MIXED_COLUMN, PandasCall, RuleContext, Unsupported, derived_column
+from porter.translate.context import (
+    MIXED_COLUMN, PandasCall, RuleContext, Unsupported, derived_column, lost_float_ints,
+)
 from porter.translate.values import (
     MISSING, Accessor, BoundMethod, Column, Frame, Grouped, Indexed, Indexer, Items, Module, Opaque,
     PandasValue, Parts, Resampled, Scalar, TimeGrouperSpec, Value, fresh_token, is_pandas,
@@ -844,7 +846,7 @@ class Evaluator:
             if aligned is not None:
                 call = replace(call, args=(call.args[0], aligned.with_sites(*call.args[1].sites)))
         try:
-            result = fn(call, ctx)
+            result = lost_float_ints(key, call, fn(call, ctx), ctx)
         except Unsupported as exc:
             return self.todo(key, call, node, exc.reason, entry=entry)
         except Exception as exc:  # noqa: BLE001 - a rule that cannot read this call keeps pandas

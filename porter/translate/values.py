@@ -78,6 +78,12 @@ class Frame(Value):
     # ("2024"); the names here (the index keys, a margin, columns written since) are text in
     # both. None: no such columns
     int_labels_except: tuple[str, ...] | None = field(default=None, kw_only=True)
+    # integer columns pandas holds as float64 when a step gave them a missing value, which
+    # depends on the data (a merge left a row unmatched, where() without other): Polars keeps
+    # Int64 with nulls, and the run-time checks (PANDAS_CSV_INTS, astype(str), printing) read
+    # those nulls. Each with what made it so; a step that removes the nulls (fillna, dropna, a
+    # filter, a group key) lowers its confidence and clears the mark (lost_float_ints)
+    float_ints: tuple[tuple[str, str], ...] = field(default=(), kw_only=True)
 
     def dtype(self, column: str) -> str | None:
         return dict(self.dtypes).get(column)
@@ -104,6 +110,9 @@ class Column(Value):
     element: bool = field(default=False, kw_only=True)  # the parameter of a lambda: one value
     python_int: bool = field(default=False, kw_only=True)  # int() of one value: a Python int
     binding: int | None = field(default=None, kw_only=True)  # the assignment that named it
+    # an integer column pandas holds as float64 when a value went missing (Frame.float_ints):
+    # what made it so, or None
+    float_int: str | None = field(default=None, kw_only=True)
 
 
 @dataclass(frozen=True)
