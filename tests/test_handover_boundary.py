@@ -1045,3 +1045,24 @@ frame = df
 """, *(("frame", "result") if "result" in uses else ("frame",)))
     messages = " ".join(site.message for site in result.sites)
     assert "column 'crates' was overwritten" not in messages
+
+
+@pytest.mark.parametrize("data_dir", [None, "."])
+@pytest.mark.parametrize("before", [
+    # kept on pandas (a loc to two columns), then back to Polars
+    'df.loc[df["crates"] > 3, ["tons", "spare"]] = 0\n',
+    # the script's own function changes the frame: its columns are not known after it
+    'def stamp(frame):\n    frame["seen"] = True\nstamp(df)\n',
+])
+def test_a_new_column_written_through_loc_after_a_hand_over(before: str, data_dir: str | None) -> None:
+    # pandas makes the column, missing outside the rows chosen
+    text = differential(f"""
+import pandas as pd
+df = pd.read_csv("cargo.csv")
+{before}df.loc[df["crates"] > 2, "new"] = "x"
+df.loc[df["crates"] > 1, "kind"] = "many"
+frame = df
+""", "frame", data_dir=data_dir).converted_text
+    if data_dir and "spare" in before:
+        # the columns the loc wrote are known: the frame's schema is kept across the hand-over
+        assert "pl.selectors.by_name" not in text

@@ -755,7 +755,9 @@ def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: rows where the mask met a missing value keep their value (pandas' False); a new
     column is missing outside the mask, as pandas makes it; a new column given a whole number
-    is Float64, as pandas makes it float64 whatever the mask (all True too).
+    is Float64, as pandas makes it float64 whatever the mask (all True too); where the columns
+    are not known, the column's values where the frame has it and missing values where it is
+    new (a whole number then makes a new column Int64: 0.9).
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
@@ -776,15 +778,19 @@ def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("an array (.values / .to_numpy()) is placed over the chosen rows by "
                           "position: assign the expression itself (df[\"v\"] * 10)")
     exists = frame.columns is None or name in frame.columns
-    if frame.columns is None:
-        ctx.lower(f"column {name!r} is taken to exist already", 0.9)
+    if frame.columns is None and dtype in ("int", None):
+        ctx.lower(f"the columns are not known: if {name!r} is new, a whole number makes it "
+                  "Int64 here where pandas makes it float64", 0.9)
     if not exists and dtype == "int":
         # a new column is NaN outside the mask: pandas makes it float64 whatever the mask
         # (all True too), and it stays float after fillna
         code = emit.pl("lit", float(value.const)) if isinstance(value, Opaque) \
             and isinstance(value.const, int) else code.method("cast", emit.atom("pl.Float64"))
         dtype = "float"
-    new = emit.when(ctx.expr(rows, frame), code, emit.col(name) if exists else None)
+    kept_values = emit.col(name) if frame.columns is not None else emit.pl(
+        # the column when the frame has it, missing values when it does not (a new column)
+        "coalesce", emit.call("pl.selectors.by_name", name, require_all=False), emit.pl("lit", None))
+    new = emit.when(ctx.expr(rows, frame), code, kept_values if exists else None)
     kept = dtype == frame.dtype(name) or not exists and dtype == "float"
     return with_columns(frame, [(name, new, dtype if kept else None)])
 

@@ -1703,6 +1703,12 @@ def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
         # `df["c"] = ...` / `df.loc[m, "c"] = ...`: one column made or changed
         columns = frame.columns if key in frame.columns else (*frame.columns, key)
         dtypes = tuple((c, t) for c, t in frame.dtypes if c != key and t in _ROUND_TRIP_TYPES)
+    keys = _written_names(target) if key is None and frame.columns is not None else None
+    if keys:
+        # `df[["a", "b"]] = ...` / `df.loc[m, ["x", "b"]] = 0`: those columns made or changed
+        # (pandas adds the new ones at the end, in the order written)
+        columns = (*frame.columns, *(k for k in dict.fromkeys(keys) if k not in frame.columns))  # type: ignore[misc]
+        dtypes = tuple((c, t) for c, t in frame.dtypes if c not in keys and t in _ROUND_TRIP_TYPES)
     if isinstance(key, str) and isinstance(statement, cst.Assign) \
             and isinstance(target, cst.Subscript) and len(target.slice) == 1 \
             and handover.text_categories(statement.value, (dtype_names or {}).get) is not None:
@@ -1711,6 +1717,28 @@ def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
     return Frame(emit.atom(name), columns=columns, dtypes=dtypes,
                  labels_intact=frame.labels_intact,
                  int_labels_except=handover.int_labels_after(frame, key))
+
+
+def _written_names(target: cst.BaseExpression | None) -> tuple[str, ...] | None:
+    """The column names a subscript assignment writes when they are a written-out list
+    (`df[["a", "b"]]`, `df.loc[m, ["x", "b"]]`); None otherwise."""
+    if not isinstance(target, cst.Subscript) or not target.slice:
+        return None
+    owner = target.value
+    if isinstance(owner, cst.Attribute) and owner.attr.value == "loc":
+        if len(target.slice) != 2:
+            return None
+    elif not isinstance(owner, cst.Name) or len(target.slice) != 1:
+        return None
+    last = target.slice[-1].slice
+    if not (isinstance(last, cst.Index) and isinstance(last.value, (cst.List, cst.Tuple))):
+        return None
+    names = [e.value.evaluated_value if isinstance(e.value, cst.SimpleString) else None
+             for e in last.value.elements]
+    if not names or not all(isinstance(n, str) for n in names) \
+            or any(isinstance(e, cst.StarredElement) for e in last.value.elements):
+        return None
+    return tuple(names)  # type: ignore[arg-type]
 
 
 def _whole_column(target: cst.Subscript) -> cst.BaseExpression:

@@ -28,7 +28,9 @@ hives = hives.with_columns(
 hives = hives.with_columns(
     label=pl.when(pl.col("weight_kg").is_null())
     .then(pl.lit("unweighed"))
-    .otherwise(pl.col("label")),
+    .otherwise(
+        pl.coalesce(pl.selectors.by_name("label", require_all=False), pl.lit(None)),
+    ),
 )
 watch = hives.filter(pl.col("label").ne_missing(pl.lit("strong")))
 (
