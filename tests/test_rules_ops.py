@@ -451,3 +451,24 @@ def test_text_formatting_with_percent_is_not_taken_for_a_remainder() -> None:
     result = differential('import pandas as pd\ndf = pd.DataFrame({"n": [5, 12, 0]})\n'
                           'df["i"] = df["n"].map(lambda v: "n=%s" % v)\nresult = df\n')
     assert result.todos
+
+
+@pytest.mark.parametrize("expr", [
+    pytest.param('df["s"] * 3', id="text times a number"),
+    pytest.param('2 * df["s"]', id="a number times text"),
+    pytest.param('df["s"] * 0', id="times zero"),
+    pytest.param('df["s"] * -1', id="times a negative number"),
+    pytest.param('df["s"] * df["i"]', id="times an int column"),
+    pytest.param('df["i"].apply(lambda n: "*" * n)', id="a text constant times one value"),
+])
+def test_text_times_a_whole_number_repeats_it(expr: str) -> None:
+    # pandas is the reference implementation: its str dtype repeats each text (Python's
+    # "ab" * 3), a missing text stays missing, n <= 0 gives ""
+    result = differential(FRAME + f'df["out"] = {expr}\nresult = df\n')
+    assert "repeat_by" in result.converted_text or "* 0" in expr or "-1" in expr, result.converted_text
+
+
+def test_text_times_a_float_is_a_todo() -> None:
+    # pandas raises "Can only string multiply by an integer": kept on pandas, under a TODO
+    text = convert(FRAME + 'df["t"] = df["s"] * 2.0\n').converted_text
+    assert "# TODO(porter): series.arith" in text and "whole number" in text, text

@@ -55,7 +55,8 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
     and inf - inf are made missing too wherever an operand may hold inf (a float or
     unknown-type column, stored from a division or read from the data, or an inf constant);
     integer and boolean operands and finite constants need nothing; an operand that is a
-    Timedelta goes to datetimes.timedelta_arithmetic.
+    Timedelta goes to datetimes.timedelta_arithmetic; text times a whole number repeats it
+    (_repeated_text).
     Caveats: two operands of unknown type (a + b without --data) may be text or dates, where
     fill_nan fails: left out, confidence 0.95 (for - and * only when the script makes no
     datetimes).
@@ -86,6 +87,8 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
         return derived_column(column, code, others=[left, right],
                               dtype="float" if op == "/" and rtype == "duration" else
                               None if over else "duration", name=_result_name(left, right))
+    if op == "*" and ("str" in (ltype, rtype)):
+        return _repeated_text(left, right, lcode, rcode, column, ctx)
     if op == "/":
         # a NaN an operand made missing stays NaN through + - * / and is made missing by the
         # outermost operation instead: one fill_nan for a chain of arithmetic
@@ -154,6 +157,38 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
         code = emit.binop(emit.pl("lit", left.const), "+", rcode)  # type: ignore[union-attr]
     result = derived_column(column, code, dtype=dtype, others=[left, right], name=_result_name(left, right))
     # inside a lambda, arithmetic on the parameter is still one value: `(s + "!").upper()`
+    return replace(result, element=True) if column.element else result
+
+
+def _repeated_text(left: Value, right: Value, lcode: Code, rcode: Code, column: Column,
+                   ctx: RuleContext) -> Value:
+    """text * n (or n * text): each text repeated n times, as Python and pandas' str dtype
+    repeat it ("*" * 3 is "***"; n <= 0 gives ""); a missing text stays missing. Polars has
+    no repeat for text: the value is repeated into a list (repeat_by) and joined. n is a whole
+    number: a constant, or an int column (pandas: one per row; also a Python int in a lambda,
+    where a text constant may come first: "*" * x)."""
+    text, times, tcode, ncode = (left, right, lcode, rcode) if value_dtype(left) == "str" \
+        else (right, left, rcode, lcode)
+    count = times.const if isinstance(times, Opaque) and times.is_const else None
+    if isinstance(count, bool) or not (isinstance(count, int) or value_dtype(times) == "int"):
+        raise Unsupported("text times a value that is not a whole number (pandas raises "
+                          "\"Can only string multiply by an integer\")")
+    if not isinstance(text, Column) and not column.element:
+        # pandas' "*" * series goes to numpy, which raises; Python's own in a lambda works
+        raise Unsupported("a text constant times a column (numpy raises in pandas)")
+    if isinstance(text, Column):
+        present = tcode.method("is_not_null")
+    else:
+        present = ncode.method("is_not_null")
+        tcode = emit.pl("lit", text.const)  # type: ignore[union-attr]
+    if count is not None:
+        repeated = emit.pl("lit", "") if count <= 0 else \
+            tcode.method("repeat_by", count).attr("list").method("join", "")
+    else:
+        repeated = tcode.method("repeat_by", ncode.method("clip", 0)).attr("list").method("join", "")
+    code = emit.pl("when", present).method("then", repeated)
+    result = derived_column(column, code, dtype="str", others=[left, right],
+                            name=_result_name(left, right))
     return replace(result, element=True) if column.element else result
 
 
