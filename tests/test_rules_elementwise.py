@@ -845,3 +845,40 @@ add_note(HEAVY, "y")
 result = out
 """, data_dir=str(tmp_path))
     assert ".map_elements(" not in result.converted_text
+
+
+def test_map_with_a_dict_of_whole_and_fractional_numbers_is_float() -> None:
+    # pandas makes float64 of 1 and 2.5 (and NaN where the key is not in the dict)
+    result = differential(FRAME + 'weights = {"a": 1, "b": 2.5, "c": None}\n'
+                          'df["w"] = df["k"].map(weights)\n'
+                          'df["w2"] = df["k"].map({"a": 3, "c": 0.5})\n'
+                          'result = df\ntexts = df.to_csv(index=False)\n', "result", "texts")
+    assert "pl.Float64" in result.converted_text
+
+
+@pytest.mark.parametrize("values", ['{"a": 1, "b": "legacy"}', '{"a": True, "b": 2}'])
+def test_map_with_a_dict_of_numbers_and_text_keeps_the_frame_on_pandas(values: str) -> None:
+    # an object column in pandas (each value as it is): no Polars type holds it
+    result = differential(FRAME + f'df["code"] = df["k"].map({values})\n'
+                          'result = df\nlisted = df["code"].tolist()\n', "result", "listed")
+    assert "# TODO(porter): series.map" in result.converted_text
+
+
+@pytest.mark.parametrize("data_dir", [None, "."])
+def test_apply_of_a_function_returning_numbers_and_text_keeps_the_frame_on_pandas(
+        data_dir, tmp_path, monkeypatch) -> None:
+    (tmp_path / "paint.csv").write_text("cat,n\nRed,1\nred,2\nBlue,3\n,4\nGreen,5\nRed,6\n", encoding="utf-8")
+    monkeypatch.chdir(tmp_path)
+    differential("""
+import pandas as pd
+CODES = {"Red": 1, "Blue": 2, "red": "legacy"}
+def code(v):
+    try:
+        return CODES[v]
+    except KeyError:
+        return None
+df = pd.read_csv("paint.csv")
+df["code"] = df["cat"].apply(code)
+result = df
+listed = df["code"].tolist()
+""", "result", "listed", data_dir=data_dir)

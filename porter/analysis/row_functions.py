@@ -61,7 +61,11 @@ RESULT_TYPES = frozenset({"float", "int", "str", "bool"})  # constants of these 
 
 
 class NotPortable(Exception):
-    """The function may behave otherwise on a Polars row: the reason, for the TODO."""
+    """The function may behave otherwise on a Polars row: the reason, for the TODO. `mixed`:
+    it returns values of several types (a number and a text), which pandas keeps side by side
+    in an object column that no Polars type holds."""
+
+    mixed = False
 
 
 @dataclass(frozen=True)
@@ -224,8 +228,11 @@ def _result(name: str, returns: frozenset[str]) -> str:
     found = _RESULTS.get(returns)
     if found is None:
         shown = ", ".join(sorted(k for k in returns if k != UNKNOWN))
-        raise NotPortable(f"what {name} returns is not always of one type porter can read"
-                          + (f" ({shown})" if shown else ""))
+        error = NotPortable(f"what {name} returns is not always of one type porter can read"
+                            + (f" ({shown})" if shown else ""))
+        known = returns - {"none"}
+        error.mixed = UNKNOWN not in known and len(known) > 1 and known != {"int", "float"}
+        raise error
     return found
 
 
@@ -461,6 +468,13 @@ def _kinds(node: ast.AST, names: dict[str, frozenset[str]], facts: ModuleFacts,
         if isinstance(key, ast.Constant) and isinstance(key.value, str):
             return columns.get(key.value, unknown)
         return found or unknown
+    if isinstance(node, ast.Subscript) and isinstance(node.value, ast.Name) \
+            and node.value.id not in names and isinstance(facts.constants.get(node.value.id), dict):
+        # a lookup in the module's dict (`CODES[v]`): one of its values (a missing key raises)
+        values = facts.constants[node.value.id].values()  # type: ignore[union-attr]
+        kinds = frozenset("none" if v is None else "bool" if isinstance(v, bool)
+                          else type(v).__name__ for v in values)
+        return kinds if kinds and kinds <= RESULT_TYPES | {"none"} else unknown
     if isinstance(node, ast.Subscript) and k(node.value) == frozenset({"str"}):
         return frozenset({"str"})  # a character or a slice of a text
     if isinstance(node, (ast.Subscript, ast.Attribute)) and not k(node.value):

@@ -16,7 +16,7 @@ import libcst as cst
 
 from porter.analysis import pandas_names
 from porter.analysis.row_functions import (
-    NotPortable, PythonFunction, read_row_function, read_value_function,
+    UNKNOWN, NotPortable, PythonFunction, read_row_function, read_value_function,
 )
 from porter.emit import code as emit
 from porter.emit.code import Code
@@ -24,7 +24,7 @@ from porter.rules import rule
 from porter.rules.io_options import ROW_FUNCTION
 from porter.rules.ops import abs_, compare, int64_branches, int64_lit, may_hold_nan, round_
 from porter.translate.context import (
-    PandasCall, RuleContext, Unsupported, column_of, derived_column, value_dtype,
+    MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_of, derived_column, value_dtype,
 )
 from porter.translate.values import Column, Frame, Items, Opaque, Scalar, Value
 
@@ -188,13 +188,15 @@ def map_(call: PandasCall, ctx: RuleContext) -> Value:
     """s.map(dict) -> .replace_strict(dict, default=None); s.map(lambda x: ...) / s.apply(lambda
     x: ...) -> one expression.
 
-    Handles: values missing from the dict become missing (pandas map); lambdas and the
+    Handles: values missing from the dict become missing (pandas map); a dict of whole and
+    fractional numbers gives Float64 (pandas' float64); lambdas and the
     script's own functions become pl.when / str.* / arithmetic expressions. A function with
     loops or `try` blocks on a text or float column runs in Python on each value
     (map_elements, 0.9) when it cannot tell Polars' values from pandas'
     (porter.analysis.row_functions).
     Caveats: lambdas with calls porter does not know, and functions Polars could run otherwise,
-    are TODOs.
+    are TODOs; so is a dict or a function whose values mix numbers and text (an object column
+    in pandas), whose frame then stays pandas.
     """
     column = call.receiver
     assert isinstance(column, Column)
@@ -207,7 +209,26 @@ def map_(call: PandasCall, ctx: RuleContext) -> Value:
         mapping: object = function.code if function.code.text.isidentifier() else function.const
         # True/False or text values: the result's type (a value not in the dict is missing,
         # NaN in pandas); numbers are left untyped (pandas makes whole numbers float there)
-        kinds = {type(v) for v in function.const.values()}
+        kinds = {type(v) for v in function.const.values() if v is not None}
+        if kinds == {int, float}:
+            # pandas makes them float64; Polars builds the new values from the first one's
+            # type and fails on the other: they are given as floats
+            if isinstance(mapping, Code):  # a named dict: its values as a Float64 Series
+                code = column.code.method(
+                    "replace_strict", emit.call("list", mapping),
+                    emit.call("pl.Series", emit.call("list", mapping.method("values")),
+                              dtype=emit.atom("pl.Float64"), strict=False),
+                    default=None)
+            else:
+                code = column.code.method("replace_strict", {
+                    k: None if v is None else float(v) for k, v in function.const.items()},
+                    default=None)
+            return derived_column(column, code.method("fill_nan", None), name=column.name,
+                                  dtype="float")
+        if len(kinds) > 1:
+            # a number and a text (or True/False): pandas keeps each value in an object column
+            raise Unsupported(f"the dict's values are of several types: it {MIXED_COLUMN} "
+                              "(each value kept as it is), which no Polars type holds")
         dtype = {bool: "bool", str: "str"}.get(kinds.pop()) if len(kinds) == 1 else None
         return derived_column(column, column.code.method("replace_strict", mapping, default=None),
                               name=column.name, dtype=dtype)
@@ -624,12 +645,20 @@ def _python_values(column: Column, function: cst.FunctionDef, reason: str, skip_
     name = function.name.value
     kinds = {"str": frozenset({"str", "float"}), "float": frozenset({"float"})}.get(column.dtype or "")
     if ctx.python_module is None or kinds is None:
+        mixed = ""
+        if ctx.python_module is not None:
+            try:  # what it returns, whatever it is given
+                read_value_function(ctx.python_module, name, frozenset({UNKNOWN}))
+            except NotPortable as exc:
+                mixed = f"; it returns values of several types: it {MIXED_COLUMN}" if exc.mixed else ""
         raise Unsupported(f"{reason}; porter runs {name} on Polars values only on a text or float "
-                          f"column whose type it knows (convert with --data)")
+                          f"column whose type it knows (convert with --data){mixed}")
     try:
         found = read_value_function(ctx.python_module, name, kinds)
     except NotPortable as exc:
-        raise Unsupported(f"{reason}; {exc}") from None
+        # values of several types: the statement that stores them keeps the frame on pandas
+        mixed = f": it {MIXED_COLUMN}" if exc.mixed else ""
+        raise Unsupported(f"{reason}; {exc}{mixed}") from None
     values = column.code.method("fill_nan", None) if column.dtype == "float" else column.code
     if skip_missing:  # na_action="ignore": pandas leaves a missing value missing
         code = values.method("map_elements", emit.atom(name),
