@@ -255,7 +255,11 @@ def _parameter_and_body(call: PandasCall, function: Opaque, ctx: RuleContext,
     named = function_value(call, function, ctx)
     if named is None:
         raise Unsupported(f"a function porter cannot read: {advice}")
-    return named.params.params[0].name.value, body_expression(named)
+    try:
+        body = body_expression(named)
+    except Unsupported as exc:
+        raise Unsupported(f"{named.name.value} is not one expression ({exc.reason}): {advice}") from None
+    return named.params.params[0].name.value, body
 
 
 def _group_of(grouped: Grouped) -> Frame:
