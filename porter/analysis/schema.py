@@ -54,6 +54,9 @@ class FileSchema(dict[str, str]):
     # a file of a header only: pandas reads every column as object (no type), Polars as text;
     # its column types say nothing of a file with rows (`polars` is None then)
     no_rows: bool = False
+    # the first data row has one field more than the header (a trailing comma on data lines):
+    # pandas reads the first field of each row as the row labels and the columns shift by one
+    implicit_index: bool = False
 
 
 def polars_code(dtype: pl.DataType) -> str | None:
@@ -93,6 +96,7 @@ def merged(schemas: list[FileSchema]) -> FileSchema | None:
     found.empty_rows = any(s.empty_rows for s in schemas)
     found.missing_ints = frozenset().union(*(s.missing_ints for s in schemas))
     found.no_rows = any(s.no_rows for s in schemas)
+    found.implicit_index = any(s.implicit_index for s in schemas)
     return found
 
 
@@ -139,6 +143,7 @@ class SchemaReader:
             found.first_texts = _first_texts(file, schema, options)
             found.missing_ints = frozenset(missing_ints | padded_ints)
             found.no_rows = _no_rows(file, options)
+            found.implicit_index = _implicit_index(file, options)
             if found.no_rows:
                 found.polars = None
         return found
@@ -164,6 +169,22 @@ def _first_texts(file: Path, schema: Any, options: dict[str, Any]) -> dict[str, 
         if values:
             found[name] = values[0]
     return found
+
+
+def _implicit_index(file: Path, options: dict[str, Any]) -> bool:
+    """Whether the first data row has one field more than the header, where pandas takes
+    the first column as the index (Polars' reader fails on such a row)."""
+    import csv
+    import itertools
+
+    try:
+        with file.open(encoding="utf-8-sig", errors="replace", newline="") as handle:
+            lines = itertools.islice(handle, int(options.get("skiprows") or 0), None)
+            rows = (r for r in csv.reader(lines, delimiter=options.get("sep", ",")) if r)
+            header, first = next(rows, None), next(rows, None)
+    except (OSError, csv.Error):
+        return False
+    return header is not None and first is not None and len(first) == len(header) + 1
 
 
 def _no_rows(file: Path, options: dict[str, Any]) -> bool:

@@ -138,6 +138,11 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         emptied = _emptied_columns(per_column, schema, overrides, dtypes, source, options, ctx)
         if emptied:  # read as text, so that no token is lost to a type Polars infers first
             kwargs["schema_overrides"] = {**overrides, **{c: emit.atom("pl.String") for c, *_ in emptied}}
+    if getattr(schema, "implicit_index", False):
+        raise ctx.todo("the data rows have one field more than the header (a trailing "
+                       "separator): pandas reads the first field of each row as the row labels "
+                       "and gives the header's names to the rest, Polars' reader fails on the "
+                       "extra field")
     if getattr(schema, "no_rows", False):
         # the types read from a file of a header only say nothing (every column is text to
         # Polars); pandas reads such columns as object: a sum is 0 and max/mean NaN there, text
