@@ -1066,3 +1066,19 @@ frame = df
     if data_dir and "spare" in before:
         # the columns the loc wrote are known: the frame's schema is kept across the hand-over
         assert "pl.selectors.by_name" not in text
+
+
+@pytest.mark.parametrize("use", [
+    's.str.replace(r"^\\s*|\\s*$", "", regex=True)',
+    's.str.upper() + "!"',
+])
+def test_a_series_kept_in_a_name_before_its_frame_goes_to_pandas_under_another_name(use: str) -> None:
+    # `out = df` then a change through `out`: both names stay pandas from there, and `s` too
+    differential(f"""
+import pandas as pd
+df = pd.read_csv("cargo.csv")
+s = df["kind"]
+out = df
+out["c"] = {use}
+frame = out
+""", "frame")

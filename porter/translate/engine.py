@@ -1019,14 +1019,15 @@ class _Walker:
         return "\n".join([*first, f"{name} = {handover.to_pandas(frame).text}", original]), sites
 
     def hand_over_expressions_of(self, name: str, env: dict[str, Value],
-                                 stmt: cst.CSTNode) -> list[str]:
+                                 stmt: cst.CSTNode | None) -> list[str]:
         """Series kept in names as expressions of the frame `name` (`m = df["a"] > 0`) that
-        the statement reads: pandas computes them first, from the Polars frame, in their own
-        names; once `name` holds the pandas frame an expression of it has nothing to run on."""
-        read = set(_names_read(self.services.code_for(stmt)))
+        the statement reads (every one, without a statement): pandas computes them first, from
+        the Polars frame, in their own names; once `name` holds the pandas frame an expression
+        of it has nothing to run on."""
+        read = set(_names_read(self.services.code_for(stmt))) if stmt is not None else None
         lines = []
         for held, value in list(env.items()):
-            if held in read and held != name and isinstance(value, Column) \
+            if (read is None or held in read) and held != name and isinstance(value, Column) \
                     and value.binding is not None \
                     and (value.frame.code.text == name and isinstance(env.get(name), Frame)
                          # a Series kept as a frame of its own (`m = df.select(...)`, read
@@ -1206,7 +1207,10 @@ class _Walker:
             # pandas, so a change through either shows through the other. Both stay pandas.
             original = source.value
             self.note_handed_over(original, value)
-            lines = [f"{original} = {handover.to_pandas(value).text}", f"{name} = {original}"]
+            # the frame stays pandas from here: a Series kept as an expression of it
+            # (`s = df["s"]`) is computed by pandas now, or it would have nothing to run on
+            lines = self.hand_over_expressions_of(original, env, None)
+            lines += [f"{original} = {handover.to_pandas(value).text}", f"{name} = {original}"]
             env[original], env[name] = PandasValue(emit.atom(original)), PandasValue(emit.atom(name))
             site = SiteDraft("frame.alias", "handover", "todo", 0.0,
                              f"`{name}` and `{original}` are one frame, changed in place through "
