@@ -1104,3 +1104,26 @@ def test_read_csv_one_field_more_than_the_header_is_a_todo(data: Path) -> None:
     text = convert(source, data_dir=str(data)).converted_text
     assert "# TODO(porter): pd.read_csv" in text and "one field more" in text, text
     assert_same_table(expected, run(text)["result"])
+
+
+def test_read_csv_integers_beyond_int64_are_uint64_with_data(data: Path) -> None:
+    # pandas is the reference implementation: every value from 0 to 2**64 - 1 (none missing)
+    # is uint64 in pandas; Polars infers Int128, which does not go to numpy (tolist failed)
+    (data / "tags.csv").write_text("id,tag\n1,12345678901234567890\n2,5\n3,9223372036854775808\n",
+                                   encoding="utf-8")
+    differential("""
+        import pandas as pd
+        df = pd.read_csv("tags.csv")
+        result = df["tag"].tolist()
+        kinds = [str(t) for t in df.dtypes.tolist()]
+        top = df["tag"].max()
+        """, "result", "kinds", "top", data_dir=str(data))
+
+
+def test_read_csv_integers_beyond_int64_pandas_reads_as_text_are_lowered(data: Path) -> None:
+    # a negative value beside one past int64: pandas reads text, Polars Int128
+    (data / "tags.csv").write_text("id,tag\n1,12345678901234567890\n2,-5\n", encoding="utf-8")
+    assert str(pd.read_csv("tags.csv")["tag"].dtype) == "str"  # the behaviour named
+    result = convert('import pandas as pd\ndf = pd.read_csv("tags.csv")\n', data_dir=str(data))
+    site = next(s for s in result.sites if s.key == "pd.read_csv")
+    assert site.confidence <= 0.7 and "beyond int64" in site.message, site.message

@@ -57,12 +57,16 @@ class FileSchema(dict[str, str]):
     # the first data row has one field more than the header (a trailing comma on data lines):
     # pandas reads the first field of each row as the row labels and the columns shift by one
     implicit_index: bool = False
+    # integer columns beyond int64 that pandas does not read as uint64 (text or Python ints
+    # there; Int128 to Polars)
+    wide_ints: tuple[str, ...] = ()
 
 
 def polars_code(dtype: pl.DataType) -> str | None:
     """`pl.Int64` for a dtype a CSV scan reads as is; None for one it cannot be told."""
     plain = {pl.Int64: "pl.Int64", pl.Float64: "pl.Float64", pl.String: "pl.String",
-             pl.Boolean: "pl.Boolean", pl.Int32: "pl.Int32", pl.Float32: "pl.Float32"}
+             pl.Boolean: "pl.Boolean", pl.Int32: "pl.Int32", pl.Float32: "pl.Float32",
+             pl.UInt64: "pl.UInt64"}
     for kind, code in plain.items():
         if dtype == kind:
             return code
@@ -124,6 +128,7 @@ class SchemaReader:
                 schema = pl.scan_csv(file, **scan_kwargs(options)).collect_schema()
                 schema, padded, padded_ints = _text_read_as_numbers(file, schema, options)
                 schema, missing_ints = _missing_ints_as_floats(file, schema, options)
+                schema, wide = _unsigned_ints(file, schema, options)
             elif reader == "parquet":
                 schema = pl.scan_parquet(file).collect_schema()
             else:
@@ -144,6 +149,7 @@ class SchemaReader:
             found.missing_ints = frozenset(missing_ints | padded_ints)
             found.no_rows = _no_rows(file, options)
             found.implicit_index = _implicit_index(file, options)
+            found.wide_ints = tuple(wide)
             if found.no_rows:
                 found.polars = None
         return found
@@ -185,6 +191,31 @@ def _implicit_index(file: Path, options: dict[str, Any]) -> bool:
     except (OSError, csv.Error):
         return False
     return header is not None and first is not None and len(first) == len(header) + 1
+
+
+def _unsigned_ints(file: Path, schema: Any, options: dict[str, Any]) -> tuple[dict[str, Any], list[str]]:
+    """The schema with each integer column Polars reads as Int128 (a value beyond int64) that
+    pandas reads as uint64 (every value from 0 to 2**64 - 1, none missing) typed UInt64, and
+    the names of the other Int128 columns (pandas reads text or Python ints there)."""
+    wide = [name for name, dtype in schema.items() if dtype == pl.Int128]
+    found = dict(schema)
+    if not wide:
+        return found, []
+    if file.stat().st_size > SAMPLE_SCAN_LIMIT:
+        return found, wide
+    row = pl.scan_csv(file, **scan_kwargs(options)).select(
+        *[pl.col(n).min().alias(f"\0min{i}") for i, n in enumerate(wide)],
+        *[pl.col(n).max().alias(f"\0max{i}") for i, n in enumerate(wide)],
+        *[pl.col(n).null_count().alias(f"\0nulls{i}") for i, n in enumerate(wide)],
+    ).collect().row(0, named=True)
+    others = []
+    for i, name in enumerate(wide):
+        if row[f"\0nulls{i}"] == 0 and row[f"\0min{i}"] is not None and row[f"\0min{i}"] >= 0 \
+                and row[f"\0max{i}"] < 2**64:
+            found[name] = pl.UInt64
+        else:
+            others.append(name)
+    return found, others
 
 
 def _no_rows(file: Path, options: dict[str, Any]) -> bool:

@@ -143,6 +143,10 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                        "separator): pandas reads the first field of each row as the row labels "
                        "and gives the header's names to the rest, Polars' reader fails on the "
                        "extra field")
+    for column in getattr(schema, "wide_ints", ()):
+        ctx.lower(f"column {column!r} holds integers beyond int64: pandas reads them as text "
+                  "or as Python ints (object), Polars as Int128, which does not go to numpy or "
+                  "pandas (tolist, a hand-over fails)", 0.7)
     if getattr(schema, "no_rows", False):
         # the types read from a file of a header only say nothing (every column is text to
         # Polars); pandas reads such columns as object: a sum is 0 and max/mean NaN there, text
@@ -242,7 +246,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
 # The types a text column is cast to after the scan exactly as the CSV reader would parse it
 # (measured: the same values, the same failures, except numbers with spaces around them, which
 # porter reads as text anyway, see `padded`)
-TEXT_CASTS = ("pl.String", "pl.Int64", "pl.Int32", "pl.Float64", "pl.Float32")
+TEXT_CASTS = ("pl.String", "pl.Int64", "pl.Int32", "pl.Float64", "pl.Float32", "pl.UInt64")
 
 
 def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], partial: bool) -> Code:
