@@ -84,7 +84,7 @@ PORTS = [
     pytest.param('df = pd.read_parquet("produce.parquet", columns=["id"])',
                  '.select("id")', id="read_parquet columns"),
     pytest.param('df = pd.DataFrame({"a": [1.0, np.nan, None]})\ndf.to_csv("out.csv", index=False)',
-                 'df.sink_csv("out.csv", null_value=\'""\')',
+                 'with_columns(PANDAS_CSV_FLOATS).sink_csv("out.csv", null_value=\'""\')',
                  id="to_csv index=False sinks (one column: a missing value is written \"\")"),
     pytest.param('df = pd.DataFrame({"a": [1.0, np.nan]})\ndf.to_csv("out.csv")',
                  'df.collect().to_pandas().to_csv("out.csv")',
@@ -1127,3 +1127,20 @@ def test_read_csv_integers_beyond_int64_pandas_reads_as_text_are_lowered(data: P
     result = convert('import pandas as pd\ndf = pd.read_csv("tags.csv")\n', data_dir=str(data))
     site = next(s for s in result.sites if s.key == "pd.read_csv")
     assert site.confidence <= 0.7 and "beyond int64" in site.message, site.message
+
+
+def test_to_csv_writes_small_floats_as_python_does(data: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    # pandas is the reference implementation: it writes Python's repr (5e-05, 1.5e-07, 1e-09),
+    # where Polars' writer gives 0.00005, 1.5e-7, 1e-9; the file text is compared byte for byte
+    pandas_side, polars_side, converted = written_by_both("""
+        import numpy as np
+        import pandas as pd
+        df = pd.DataFrame({"site": ["A", "B", "C", "D", "E", "F"],
+                           "conc": [0.00005, 1.5e-07, 0.25, np.nan, -9.99e-05, 1.2345678901234567e-05]})
+        df["ppm"] = df["conc"] / 1000
+        df.to_csv("out.csv", index=False)
+        """, data, monkeypatch)
+    assert "PANDAS_CSV_FLOATS" in converted
+    expected = (pandas_side / "out.csv").read_text(encoding="utf-8")
+    assert "5e-05" in expected and "1.5e-07" in expected  # the behaviour the test is about
+    assert (polars_side / "out.csv").read_text(encoding="utf-8") == expected

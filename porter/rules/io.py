@@ -10,6 +10,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_DURATIONS_CONSTANT,
+                                     CSV_FLOATS_CONSTANT,
                                      CSV_INTS_CONSTANT, CSV_LISTS_CONSTANT,
                                      CSV_NUMBER_LISTS_CONSTANT, CSV_ZONED_DATETIMES_CONSTANT,
                                      DTYPES,
@@ -661,7 +662,7 @@ def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
 
     pandas writes booleans as True/False, and a datetime column as dates only when every value
     is at midnight, without fractions when none has microseconds (decided per column from the
-    data, which the expression does too).
+    data, which the expression does too); floats as Python's repr (5e-05, 1.5e-07).
     """
     kinds = {t for _, t in frame.dtypes}
     complete = frame.columns is not None and len(frame.dtypes) == len(frame.columns)
@@ -686,6 +687,10 @@ def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
                       "2024, as a nullable column is; a plain one is float in pandas (2024.0)", 0.9)
         else:
             out.append(emit.atom(CSV_INTS_CONSTANT))
+    if "float" in kinds:
+        # Python's repr of small floats (5e-05, 1.5e-07), where Polars writes 0.00005, 1.5e-7;
+        # a float column porter has no type for (without --data) is written by Polars
+        out.append(emit.atom(CSV_FLOATS_CONSTANT))
     if ctx.lists_possible and not complete:
         # lists in columns porter may not know of (a frame back from pandas): Polars' CSV
         # writer refuses nested data, pandas writes str(list); the selectors find them all

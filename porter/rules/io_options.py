@@ -121,6 +121,22 @@ PANDAS_CSV_INTS = (
 )
 """
 
+# An expression, defined once at the top of a converted script, that writes every float
+# column the way pandas' to_csv does: Python's repr, where Polars writes 0.00005 for 5e-05 and
+# 1.5e-7 for 1.5e-07 (the digits are the same shortest ones; only the layout differs, for
+# magnitudes below 1e-4 and exponents of one digit). NaN is an empty field, as pandas writes it.
+CSV_FLOATS_CONSTANT = "PANDAS_CSV_FLOATS"
+CSV_FLOATS_DEFINITION = """\
+# Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
+# writes 0.00005 and 1.5e-7; NaN as an empty field.
+PANDAS_CSV_FLOATS = (
+    pl.selectors.float().fill_nan(None).cast(pl.String)
+    .str.replace(r"e-(\\d)$", "e-0${1}")
+    .str.replace(r"^(-?)0\\.0000(\\d)$", "${1}${2}e-05")
+    .str.replace(r"^(-?)0\\.0000(\\d)(\\d+)$", "${1}${2}.${3}e-05")
+)
+"""
+
 # An expression, defined once at the top of a converted script, that writes every column of
 # lists of text the way pandas' to_csv writes a Python list: ['a', "it's"], escaped as repr.
 CSV_LISTS_CONSTANT = "PANDAS_CSV_LISTS"

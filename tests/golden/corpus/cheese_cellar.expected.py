@@ -170,6 +170,15 @@ PANDAS_CSV_DURATIONS = (
     )
 )
 
+# Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
+# writes 0.00005 and 1.5e-7; NaN as an empty field.
+PANDAS_CSV_FLOATS = (
+    pl.selectors.float().fill_nan(None).cast(pl.String)
+    .str.replace(r"e-(\d)$", "e-0${1}")
+    .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
+    .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+)
+
 # Integer columns as pandas' to_csv writes them: one holding a missing value is float in
 # pandas (2024.0), one without stays integer (2024).
 PANDAS_CSV_INTS = (
@@ -231,6 +240,7 @@ status = (
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
         .cast(pl.String)
         .replace("", None),
@@ -287,6 +297,7 @@ caves = (
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
         .cast(pl.String)
         .replace("", None),
@@ -309,6 +320,7 @@ by_recipe = by_recipe.with_columns(mean_loss=pl.col("mean_loss").round(2))
     by_recipe
     .with_columns(
         PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
         .cast(pl.String)
         .replace("", None),
