@@ -1144,3 +1144,26 @@ def test_to_csv_writes_small_floats_as_python_does(data: Path, monkeypatch: pyte
     expected = (pandas_side / "out.csv").read_text(encoding="utf-8")
     assert "5e-05" in expected and "1.5e-07" in expected  # the behaviour the test is about
     assert (polars_side / "out.csv").read_text(encoding="utf-8") == expected
+
+
+def test_read_csv_category_of_numbers_is_a_todo_with_data(data: Path) -> None:
+    # pandas makes the categories numbers when every value reads as one ("007" becomes 7);
+    # Polars' Categorical holds text: kept on pandas under a TODO (and it runs)
+    (data / "codes.csv").write_text("plot,code,kind\nP1,007,a\nP2,012,b\nP3,007,a\n", encoding="utf-8")
+    assert pd.read_csv("codes.csv", dtype={"code": "category"})["code"].tolist() == [7, 12, 7]
+    source = ('import pandas as pd\n'
+              'df = pd.read_csv("codes.csv", dtype={"code": "category"})\nresult = df\n')
+    text = convert(source, data_dir=str(data)).converted_text
+    assert "# TODO(porter): pd.read_csv" in text and "categories numbers" in text, text
+    assert_same_table(pd.read_csv("codes.csv", dtype={"code": "category"}), run(text)["result"])
+
+
+def test_read_csv_category_of_text_converts_with_data(data: Path) -> None:
+    # pandas is the reference implementation: text categories stay text in both
+    (data / "codes.csv").write_text("plot,code,kind\nP1,007,a\nP2,012,b\nP3,007,a\n", encoding="utf-8")
+    result = differential("""
+        import pandas as pd
+        df = pd.read_csv("codes.csv", dtype={"kind": "category"})
+        result = df["kind"].astype(str).tolist()
+        """, data_dir=str(data))
+    assert "TODO(porter)" not in result.converted_text

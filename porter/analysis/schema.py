@@ -60,6 +60,9 @@ class FileSchema(dict[str, str]):
     # integer columns beyond int64 that pandas does not read as uint64 (text or Python ints
     # there; Int128 to Polars)
     wide_ints: tuple[str, ...] = ()
+    # columns given dtype "category" whose values all read as numbers or True/False: pandas
+    # then makes the categories numbers (007 becomes 7), Polars keeps the text
+    typed_categories: tuple[str, ...] = ()
 
 
 def polars_code(dtype: pl.DataType) -> str | None:
@@ -150,6 +153,7 @@ class SchemaReader:
             found.no_rows = _no_rows(file, options)
             found.implicit_index = _implicit_index(file, options)
             found.wide_ints = tuple(wide)
+            found.typed_categories = _typed_categories(file, options)
             if found.no_rows:
                 found.polars = None
         return found
@@ -216,6 +220,21 @@ def _unsigned_ints(file: Path, schema: Any, options: dict[str, Any]) -> tuple[di
         else:
             others.append(name)
     return found, others
+
+
+def _typed_categories(file: Path, options: dict[str, Any]) -> tuple[str, ...]:
+    """The columns given dtype "category" whose values Polars reads as numbers or True/False
+    when not told they are text (pandas reads the categories as such too)."""
+    given = options.get("dtype") if isinstance(options.get("dtype"), dict) else {}
+    names = [c for c, t in given.items() if str(t) == "category"]
+    if not names:
+        return ()
+    kwargs = scan_kwargs({k: v for k, v in options.items() if k != "dtype"})
+    try:
+        schema = pl.scan_csv(file, **kwargs).collect_schema()
+    except (pl.exceptions.PolarsError, OSError, ValueError):
+        return ()
+    return tuple(c for c in names if c in schema and (schema[c].is_numeric() or schema[c] == pl.Boolean))
 
 
 def _no_rows(file: Path, options: dict[str, Any]) -> bool:

@@ -144,6 +144,14 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                        "separator): pandas reads the first field of each row as the row labels "
                        "and gives the header's names to the rest, Polars' reader fails on the "
                        "extra field")
+    for column in getattr(schema, "typed_categories", ()):
+        raise ctx.todo(f"dtype category for column {column!r}, whose values all read as numbers "
+                       "(or True/False): pandas makes the categories numbers (007 becomes 7), "
+                       "Polars' Categorical keeps the text")
+    if schema is None and "category" in dtypes.values():
+        ctx.lower("dtype category: pandas makes the categories numbers when every value reads "
+                  "as one (007 becomes 7), Polars' Categorical keeps the text (--data would "
+                  "tell)", 0.9)
     for column in getattr(schema, "wide_ints", ()):
         ctx.lower(f"column {column!r} holds integers beyond int64: pandas reads them as text "
                   "or as Python ints (object), Polars as Int128, which does not go to numpy or "
