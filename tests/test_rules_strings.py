@@ -727,3 +727,16 @@ def test_str_of_int_in_a_lambda_is_a_python_int(label: str) -> None:
         df["lbl"] = df["n"].apply(lambda x: {label})
         result = df
         """)
+
+
+def test_astype_str_of_small_floats_is_python_repr() -> None:
+    # pandas is the reference implementation: astype(str) writes Python's repr (5e-05,
+    # 1.5e-07), where Polars' cast gives 0.00005 and 1.5e-7
+    differential("""
+        import numpy as np
+        import pandas as pd
+        df = pd.DataFrame({"conc": [0.00005, 1.5e-07, 0.25, np.nan, -9.99e-05, 1e16, 1e-10]})
+        df["lbl"] = "rate=" + df["conc"].astype(str)
+        result = df
+        texts = df["conc"].astype(str).tolist()
+        """, "result", "texts")

@@ -16,7 +16,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.io import polars_dtype
-from porter.rules.io_options import datetime_text, duration_text
+from porter.rules.io_options import datetime_text, duration_text, float_text
 from porter.rules.ops import int64_lit
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
@@ -901,8 +901,7 @@ def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, st
             # the NaN of a True/False column read with a blank: it is not "False")
             return code.method("replace_strict", {True: "True", False: "False"}), "str"
     if kind == "str" and column.dtype == "float":
-        ctx.lower("a float below 0.0001 is written 1e-05 by Python (pandas), 0.00001 or 1e-5 "
-                  "by Polars", 0.95)
+        return float_text(code), "str"  # Python's repr: 5e-05 where Polars writes 0.00005
     if kind == "str" and column.dtype == LIST_STR:
         # pandas writes each list as Python's str(list) does: ['ash', 'celadon']
         return list_repr(code), "str"

@@ -137,6 +137,15 @@ PANDAS_CSV_FLOATS = (
 )
 """
 
+def float_text(number: Code) -> Code:
+    """One float column's values as pandas' astype(str) writes them: Python's repr (5e-05,
+    1.5e-07), as PANDAS_CSV_FLOATS above writes them (keep the two in step); NaN is missing."""
+    return (number.method("fill_nan", None).method("cast", emit.atom("pl.String"))
+            .attr("str").method("replace", r"e-(\d)$", "e-0${1}")
+            .attr("str").method("replace", r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
+            .attr("str").method("replace", r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05"))
+
+
 # An expression, defined once at the top of a converted script, that writes every column of
 # lists of text the way pandas' to_csv writes a Python list: ['a', "it's"], escaped as repr.
 CSV_LISTS_CONSTANT = "PANDAS_CSV_LISTS"
