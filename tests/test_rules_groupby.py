@@ -1001,3 +1001,15 @@ def test_extreme_labels_match_pandas(before: str) -> None:
 def test_extreme_label_after_a_filter_stays_todo() -> None:
     # the labels are the original row numbers: arg_max of the filtered rows is another number
     check_todo(FRAME + 'r = df[df["n"] > 3]["qty"].idxmax()\n', "series.idxmax")
+
+
+@pytest.mark.parametrize("values", [
+    [i % 4 for i in range(40)],
+    [float((i * 7) % 5) for i in range(33)],
+    [1, 3, 3, 0, 3, 2, 3, 1, 0, 0, 3],
+])
+def test_extreme_labels_are_the_first_of_ties(values: list[float]) -> None:
+    # pandas' label is the first of equal extremes (Polars' arg_max of a lazy select is not
+    # always the first one)
+    differential(f'import pandas as pd\ndf = pd.DataFrame({{"v": {values}}})\n'
+                 'r = (df["v"].idxmax(), df["v"].idxmin(), df["v"].value_counts().idxmax())\n', "r")

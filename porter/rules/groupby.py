@@ -868,8 +868,8 @@ class RowPosition(Scalar):
 @rule("series.idxmax", "series.idxmin")
 def series_extreme_label(call: PandasCall, ctx: RuleContext) -> Value:
     """s.idxmax() / idxmin() -> the row label of the first largest / smallest value: its row
-    number (arg_max / arg_min) on a frame whose labels are 0..n-1, or its key where a groupby
-    on one key left the key as the label (`per["kg"].idxmax()`).
+    number ((c == c.max()).arg_true().first()) on a frame whose labels are 0..n-1, or its key
+    where a groupby on one key left the key as the label (`per["kg"].idxmax()`).
 
     Handles: missing values skipped; the first of equal values; the label as a Python value,
     as pandas gives it.
@@ -886,11 +886,14 @@ def series_extreme_label(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("the extreme of a column whose type porter does not know")
     frame = column.frame
     how = call.name.removeprefix("series.idx")[-3:]
-    values = column.code
+    values = column.code.method("fill_nan", None) if column.dtype == "float" else column.code
+    # the first row holding the extreme value: Polars' arg_max of a whole column in a lazy
+    # select is not always the first of equal values (pandas' is)
+    position = emit.binop(values, "==", values.method(how)).method("arg_true").method("first")
     if not frame.index and frame.labels_intact:
-        label = values.method(f"arg_{how}")
+        label = position
     elif len(frame.index) == 1 and column.name not in frame.index:
-        label = emit.col(frame.index[0]).method("get", values.method(f"arg_{how}"))
+        label = emit.col(frame.index[0]).method("get", position)
     else:
         raise Unsupported("the frame's row labels are no longer 0..n-1 (or are several keys): "
                           "keep the row number as a column (with_row_index) where it is made")
@@ -898,7 +901,7 @@ def series_extreme_label(call: PandasCall, ctx: RuleContext) -> Value:
               "here", 0.95)
     pytype = "int" if not frame.index else {"int": "int", "str": "str"}.get(frame.dtype(frame.index[0]) or "")
     return RowPosition(frame.code.method("select", label).method("collect").method("item"),
-                       pytype=pytype, rows=frame.rows, position=values.method(f"arg_{how}"))
+                       pytype=pytype, rows=frame.rows, position=position)
 
 
 @rule("frame.pivot")
