@@ -1013,3 +1013,10 @@ def test_extreme_labels_are_the_first_of_ties(values: list[float]) -> None:
     # always the first one)
     differential(f'import pandas as pd\ndf = pd.DataFrame({{"v": {values}}})\n'
                  'r = (df["v"].idxmax(), df["v"].idxmin(), df["v"].value_counts().idxmax())\n', "r")
+
+
+def test_agg_function_with_a_float_branch_says_pandas_may_keep_ints() -> None:
+    # pandas' result is int64 when no group takes the 0.5 branch; Polars' branches share Float64
+    result = convert(FRAME + 'r = df.groupby("shop")["n"].agg(lambda s: s.sum() if s.sum() > 3 else 0.5)\n')
+    site = next(s for s in result.sites if s.key == "groupby.agg")
+    assert site.confidence <= 0.9 and "float branch" in site.message

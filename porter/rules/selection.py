@@ -151,7 +151,7 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     """df.loc[mask, cols] -> .filter(mask).select(cols); df.loc[:, "a"] -> a column.
 
     Handles: df.loc[s.idxmax(), "c"] of the frame the label was read from: the value on that
-    row (pl.col("c").get(pl.col(s).arg_max())).
+    row (pl.col("c").get(the first row holding the extreme)).
     Caveats: other row labels (df.loc[3], df.loc["a":"c"]) are TODOs: the index is not data in
     Polars.
     """

@@ -304,6 +304,11 @@ def group_function(call: PandasCall, grouped: Grouped, name: str, function: Opaq
     if GROUP_FRAME in expr.text or (isinstance(result, Scalar) and result.agg is not None
                                     and result.agg.refs - {name}):
         raise Unsupported("the function reads the group as a frame (a collected value, a filter)")
+    if _has_branches(body) and re.search(r"\.(then|otherwise)\((pl\.lit\()?(-?[0-9]+\.[0-9]*|float)", expr.text):
+        # pandas makes the result from each group's Python value: int64 when no group takes
+        # the float branch; Polars' branches share one type
+        ctx.lower("pandas' result is int64 when no group takes a float branch of the function "
+                  "(5 where this writes 5.0)", 0.9)
     if grouped.frame.dtype(name) in ("float", None) and re.search(r"\.(sum|mean|std|var)\(", expr.text):
         ctx.lower("pandas adds a group's values inside a function with numpy's pairwise "
                   "summation, Polars in order: a float result can differ in the last digit", 0.95)
@@ -1104,6 +1109,18 @@ def _keeps_missing(node: cst.BaseExpression, names: set[str]) -> bool:
             and len(node.args) == 1:
         return _keeps_missing(node.args[0].value, names)
     return False
+
+
+def _has_branches(node: cst.CSTNode) -> bool:
+    found = False
+
+    class Finder(cst.CSTVisitor):
+        def visit_IfExp(self, n: cst.IfExp) -> None:
+            nonlocal found
+            found = True
+
+    node.visit(Finder())
+    return found
 
 
 def _free_names(node: cst.CSTNode) -> set[str]:
