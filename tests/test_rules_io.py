@@ -15,7 +15,7 @@ import pandas as pd
 import pytest
 
 from rule_checks import check_ports, check_todo, check_unchanged
-from support import assert_same_table, convert, differential, run
+from support import assert_same_table, convert, differential, run, same_text
 
 # Every missing-value token pandas knows that appears here: "NA", "n/a", "NULL", "NaN", "null",
 # an empty field; "-" is not one of them (na_values adds it). zip codes have leading zeros.
@@ -1167,3 +1167,18 @@ def test_read_csv_category_of_text_converts_with_data(data: Path) -> None:
         result = df["kind"].astype(str).tolist()
         """, data_dir=str(data))
     assert "TODO(porter)" not in result.converted_text
+
+
+@pytest.mark.parametrize("write", [
+    'df.groupby("k")["f"].sum().to_csv("a.csv")',
+    'df["f"].value_counts().to_csv("b.csv")',
+    'df.groupby("f").size().to_csv("d.csv")',
+])
+def test_small_floats_of_series_and_keys_are_written_as_pandas_writes_them(write: str, tmp_path: Path) -> None:
+    # float columns porter has no type for (a Series' values, float keys) are found by the
+    # selector and written as Python's repr (5e-05, 1.5e-07), as pandas writes them
+    same_text(f"""
+        import pandas as pd
+        df = pd.read_csv("t.csv")
+        {write}
+        """, tmp_path, {"t.csv": "k,v,f\na,1,0.00005\na,2,0.00005\nb,3,1.5e-07\nb,4,-0.0000123\n"})

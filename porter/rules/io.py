@@ -695,9 +695,10 @@ def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
                       "2024, as a nullable column is; a plain one is float in pandas (2024.0)", 0.9)
         else:
             out.append(emit.atom(CSV_INTS_CONSTANT))
-    if "float" in kinds:
+    if "float" in kinds or not complete:
         # Python's repr of small floats (5e-05, 1.5e-07), where Polars writes 0.00005, 1.5e-7;
-        # a float column porter has no type for (without --data) is written by Polars
+        # the selector finds float columns porter has no type for (a describe(), a Series'
+        # values, keys) too
         out.append(emit.atom(CSV_FLOATS_CONSTANT))
     if ctx.lists_possible and not complete:
         # lists in columns porter may not know of (a frame back from pandas): Polars' CSV

@@ -234,6 +234,7 @@ shop_stats = (
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
         .cast(pl.String)
         .replace("", None),
@@ -319,6 +320,7 @@ pl.collect_all([
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            PANDAS_CSV_FLOATS,
             pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
             .cast(pl.String)
             .replace("", None),
@@ -333,6 +335,7 @@ pl.collect_all([
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            PANDAS_CSV_FLOATS,
             pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
             .cast(pl.String)
             .replace("", None),

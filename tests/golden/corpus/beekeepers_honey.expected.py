@@ -196,6 +196,15 @@ PANDAS_CSV_DURATIONS = (
     )
 )
 
+# Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
+# writes 0.00005 and 1.5e-7; NaN as an empty field.
+PANDAS_CSV_FLOATS = (
+    pl.selectors.float().fill_nan(None).cast(pl.String)
+    .str.replace(r"e-(\d)$", "e-0${1}")
+    .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
+    .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+)
+
 # Integer columns as pandas' to_csv writes them: one holding a missing value is float in
 # pandas (2024.0), one without stays integer (2024).
 PANDAS_CSV_INTS = (
@@ -278,6 +287,7 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            PANDAS_CSV_FLOATS,
             pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
             .cast(pl.String)
             .replace("", None),
@@ -318,6 +328,7 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            PANDAS_CSV_FLOATS,
             pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
             .cast(pl.String)
             .replace("", None),
@@ -367,6 +378,7 @@ def main():
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            PANDAS_CSV_FLOATS,
             pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
             .cast(pl.String)
             .replace("", None),

@@ -151,6 +151,7 @@ totals = boat_totals(landings).collect().lazy()
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
         .cast(pl.String)
         .replace("", None),

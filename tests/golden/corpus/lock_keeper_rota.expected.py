@@ -255,6 +255,7 @@ pay = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
         PANDAS_CSV_LISTS,
         PANDAS_CSV_NUMBER_LISTS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
@@ -302,6 +303,7 @@ unmanned = rota.filter((pl.col("hours") == 0) & (pl.col("boats") > 0)).collect()
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
         PANDAS_CSV_LISTS,
         PANDAS_CSV_NUMBER_LISTS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)

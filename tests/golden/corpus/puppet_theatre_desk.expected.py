@@ -402,6 +402,7 @@ till = till.with_columns(takings=pl.col("takings").round(2))
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
         .cast(pl.String)
         .replace("", None),

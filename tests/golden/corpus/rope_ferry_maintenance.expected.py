@@ -380,6 +380,7 @@ usage = usage.with_columns(spent=pl.col("spent").round(2))
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
         PANDAS_CSV_LISTS,
         PANDAS_CSV_NUMBER_LISTS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
@@ -405,6 +406,7 @@ deferred = (
         PANDAS_CSV_DATETIMES,
         PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
         PANDAS_CSV_LISTS,
         PANDAS_CSV_NUMBER_LISTS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)

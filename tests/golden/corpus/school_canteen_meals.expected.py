@@ -12,6 +12,15 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+# Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
+# writes 0.00005 and 1.5e-7; NaN as an empty field.
+PANDAS_CSV_FLOATS = (
+    pl.selectors.float().fill_nan(None).cast(pl.String)
+    .str.replace(r"e-(\d)$", "e-0${1}")
+    .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
+    .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+)
+
 # Integer columns as pandas' to_csv writes them: one holding a missing value is float in
 # pandas (2024.0), one without stays integer (2024).
 PANDAS_CSV_INTS = (
@@ -80,6 +89,7 @@ per_class = per_class.with_columns(cost=pl.col("cost").round(2))
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
         .cast(pl.String)
         .replace("", None),
@@ -100,6 +110,7 @@ menu_mix = menu_mix.rename({"pupil_id": "meals"})
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
         .cast(pl.String)
         .replace("", None),
@@ -140,6 +151,7 @@ alerts = (
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
         PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
         .cast(pl.String)
         .replace("", None),

@@ -358,6 +358,7 @@ pl.collect_all([
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            PANDAS_CSV_FLOATS,
             pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
             .cast(pl.String)
             .replace("", None),
@@ -374,6 +375,7 @@ pl.collect_all([
             PANDAS_CSV_DATETIMES,
             PANDAS_CSV_DURATIONS,
             PANDAS_CSV_INTS,
+            PANDAS_CSV_FLOATS,
             pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
             .cast(pl.String)
             .replace("", None),
