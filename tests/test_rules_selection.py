@@ -504,3 +504,39 @@ def test_two_counts_of_one_frame_are_one_select() -> None:
     # len(df) - df["k"].nunique(): both counted in one plan run, the integers as pandas'
     result = differential(FRAME + 'result = len(df) - df["grade"].nunique() * 2\n')
     assert result.converted_text.count(".collect()") == 1, result.converted_text
+
+
+# -- df[names] where the list of names is built when the script runs ---------------------------
+
+NAME_LISTS = [
+    pytest.param('keep = [c for c in df.columns if c != "grade"]\nresult = df[keep]',
+                 id="a comprehension over the names"),
+    pytest.param('keep = ["n"]\nkeep.append("kg")\nresult = df[keep]', id="append"),
+    pytest.param('keep = ["n"]\nkeep += ["kg"]\nresult = df[keep]', id="augmented with a list"),
+    pytest.param('keep = list(df.columns)\nkeep.remove("grade")\nresult = df[keep]', id="remove"),
+    pytest.param('keep = [c for c in ["n", "kg"] if c != "kg"]\nresult = df[keep]',
+                 id="one name left: still a frame"),
+    pytest.param("result = df[sorted(df.columns)]", id="sorted names written in the key"),
+    pytest.param('result = df[list(df.columns[:2]) + ["n"]]', id="a slice of the names plus a list"),
+    pytest.param('keep = sorted(df.columns, reverse=True)\nresult = df[keep]',
+                 id="sorted names in a variable, their order kept"),
+]
+
+
+@pytest.mark.parametrize("code", NAME_LISTS)
+def test_list_of_names_built_at_run_time_selects_a_frame(code: str) -> None:
+    result = differential(FRAME + code + "\n")
+    assert ".alias(" not in result.converted_text
+
+
+def test_reduction_of_columns_chosen_by_a_comprehension() -> None:
+    # pandas gives one value per column; porter must not collect them as one item
+    differential(FRAME + 'qcols = [c for c in df.columns if c in ("kg", "n")]\n'
+                 "result = df[qcols].mean().round(2).to_dict()\n"
+                 "width = df[qcols].shape[1]\n", "result", "width")
+
+
+def test_a_name_holding_a_list_and_one_name_elsewhere_is_a_todo() -> None:
+    result = convert(FRAME + 'key = "n"\nif len(df) > 3:\n    key = ["n", "kg"]\n'
+                     "result = df[key]\n")
+    assert "TODO(porter): frame.getitem.column" in result.converted_text

@@ -42,15 +42,113 @@ def column_by_key(frame: Frame, key: Value, ctx: RuleContext) -> Column:
 @rule("frame.getitem.column")
 def getitem_column(call: PandasCall, ctx: RuleContext) -> Value:
     """df["a"] -> pl.col("a") inside the frame's expressions; df[[c for c in ...]] (a list
-    built when the script runs) -> .select(...), keeping the columns pandas holds in the index."""
+    built when the script runs) -> .select(...), keeping the columns pandas holds in the index.
+
+    Handles: a name the script binds only to lists (a comprehension, list(...), sorted(...),
+    x + [...]) or changes with append / extend / remove / += is a list: a frame of those
+    columns in the list's order, even with one name. A name bound to a list somewhere and to
+    something else elsewhere is a TODO (pandas gives a frame for one, a Series for the other).
+    """
     frame = frame_of(call)
     key = call.args[0]
-    if isinstance(key, Opaque) and not key.is_const and _is_list_display(key.code.text):
-        ctx.lower(f"`{key.code.text}` is taken to hold column names", 0.9)
-        code = frame.code.method("select", *frame.index, emit.col(key.code))
-        return derive(frame, code, same_rows=True, columns=None, dtypes=frame.dtypes,
-                      column_pairs=())
+    if isinstance(key, Opaque) and not key.is_const:
+        kind = "list" if _is_list_display(key.code.text) or key.pytype == "list" else None
+        if key.pytype != "str" and (isinstance(key.node, cst.Name) or key.node is None
+                                    and key.code.text.isidentifier()):
+            kind = name_kind(ctx.python_module, key.code.text) or kind
+        if kind == "mixed":
+            raise ctx.todo(f"`{key.code.text}` holds a list of column names somewhere and "
+                           "something else elsewhere: pandas selects a frame for a list and a "
+                           "Series for one name")
+        if kind == "list":
+            # pandas' df[list] is a frame of those columns in the list's order, one name or
+            # several; a name it lacks raises in both (ColumnNotFoundError in Polars)
+            ctx.lower(f"`{key.code.text}` is taken to hold column names", 0.9)
+            code = frame.code.method("select", *frame.index, emit.col(key.code))
+            return derive(frame, code, same_rows=True, columns=None, dtypes=frame.dtypes,
+                          column_pairs=())
     return column_by_key(frame, key, ctx)
+
+
+# builtins and methods whose result is a list (or pandas Index) of the names they are given
+_LIST_CALLS = frozenset({"list", "sorted"})
+_LIST_METHODS = frozenset({"tolist", "to_list", "names", "copy"})
+_LIST_CHANGES = frozenset({"append", "extend", "remove", "insert", "pop", "sort", "reverse",
+                           "clear"})
+
+
+def _list_expr(node: ast.expr | None) -> bool:
+    """`[...]`, `[... for ...]`, list(...), sorted(...), df.columns, a slice of them, x + [...]:
+    an expression that gives a list of names, never one name."""
+    if isinstance(node, (ast.List, ast.ListComp)):
+        return True
+    if isinstance(node, ast.Call) and isinstance(node.func, ast.Name):
+        return node.func.id in _LIST_CALLS
+    if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute):
+        return node.func.attr in _LIST_METHODS and _list_expr(node.func.value) \
+            or node.func.attr in ("tolist", "to_list", "names")
+    if isinstance(node, ast.Attribute):
+        return node.attr == "columns"
+    if isinstance(node, ast.Subscript) and isinstance(node.slice, ast.Slice):
+        return _list_expr(node.value)
+    if isinstance(node, ast.BinOp) and isinstance(node.op, ast.Add):
+        return _list_expr(node.left) or _list_expr(node.right)
+    return False
+
+
+def _bound_names(target: ast.expr) -> list[str]:
+    """The names an assignment target binds (`a, (b, *c)`; not those read in `df[cols] = `)."""
+    if isinstance(target, ast.Name):
+        return [target.id]
+    if isinstance(target, ast.Starred):
+        return _bound_names(target.value)
+    if isinstance(target, (ast.Tuple, ast.List)):
+        return [n for element in target.elts for n in _bound_names(element)]
+    return []
+
+
+def name_kind(module: ast.Module | None, name: str) -> str | None:
+    """What the script binds `name` to anywhere (any scope): "list" when every binding gives a
+    list of names (or the list is changed with append / extend / remove), "mixed" when some do
+    and others may not, None when none does (one name, or a value porter cannot see)."""
+    if module is None:
+        return None
+    lists = others = 0
+    for node in ast.walk(module):
+        values: list[ast.expr | None] = []
+        if isinstance(node, ast.Assign):
+            for target in node.targets:
+                if isinstance(target, ast.Name) and target.id == name:
+                    values.append(node.value)
+                elif name in _bound_names(target):
+                    values.append(None)
+        elif isinstance(node, (ast.AnnAssign, ast.NamedExpr)) and isinstance(node.target, ast.Name) \
+                and node.target.id == name:
+            values.append(node.value)
+        elif isinstance(node, ast.AugAssign) and isinstance(node.target, ast.Name) \
+                and node.target.id == name:
+            if isinstance(node.op, ast.Add) and _list_expr(node.value):
+                lists += 1
+            continue
+        elif isinstance(node, (ast.For, ast.AsyncFor, ast.comprehension, ast.withitem)):
+            target = node.optional_vars if isinstance(node, ast.withitem) else node.target
+            if target is not None and name in _bound_names(target):
+                values.append(None)
+        elif isinstance(node, ast.arg) and node.arg == name:
+            values.append(None)
+        elif isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
+                and isinstance(node.func.value, ast.Name) and node.func.value.id == name \
+                and node.func.attr in _LIST_CHANGES:
+            lists += 1
+            continue
+        for value in values:
+            if _list_expr(value):
+                lists += 1
+            else:
+                others += 1
+    if not lists:
+        return None
+    return "mixed" if others else "list"
 
 
 def _is_list_display(text: str) -> bool:
@@ -67,7 +165,12 @@ def _is_list_display(text: str) -> bool:
             and names.func.attr.value == "names" and isinstance(names.func.value, cst.Call) \
             and isinstance(names.func.value.func, cst.Attribute) \
             and names.func.value.func.attr.value == "collect_schema"
-    return isinstance(node, (cst.List, cst.ListComp))
+    if isinstance(node, (cst.List, cst.ListComp)):
+        return True
+    try:
+        return _list_expr(ast.parse(text.strip(), mode="eval").body)
+    except SyntaxError:
+        return False
 
 
 @rule("frame.getattr")
