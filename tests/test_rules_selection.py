@@ -540,3 +540,10 @@ def test_a_name_holding_a_list_and_one_name_elsewhere_is_a_todo() -> None:
     result = convert(FRAME + 'key = "n"\nif len(df) > 3:\n    key = ["n", "kg"]\n'
                      "result = df[key]\n")
     assert "TODO(porter): frame.getitem.column" in result.converted_text
+
+
+def test_for_loop_over_a_frame_iterates_its_column_names() -> None:
+    result = differential(FRAME + "result = []\nfor col in df:\n    result.append(col)\n"
+                          "totals = {}\nfor c in df[df['n'] > 2]:\n"
+                          "    totals[c] = int(df[c].count())\n", "result", "totals")
+    assert "TODO" not in result.converted_text

@@ -377,6 +377,9 @@ class _Walker:
         header_from, header_sites_from = len(self.sites), len(self.header_sites)
         if isinstance(stmt, cst.For):
             iter_value = self.evaluate(stmt.iter, env)
+            if isinstance(iter_value, Frame):  # `for col in df:` iterates pandas' column names
+                iter_value = Evaluator(env, self.services).dispatch(
+                    "frame.columns", PandasCall(iter_value, "columns", node=stmt.iter), stmt.iter)
             if isinstance(iter_value, Column):
                 # a loop over a Series reads its values as pandas gives them (NaN, not None)
                 iter_value = replace(iter_value, code=handover.to_pandas(iter_value))
