@@ -1020,3 +1020,15 @@ def test_agg_function_with_a_float_branch_says_pandas_may_keep_ints() -> None:
     result = convert(FRAME + 'r = df.groupby("shop")["n"].agg(lambda s: s.sum() if s.sum() > 3 else 0.5)\n')
     site = next(s for s in result.sites if s.key == "groupby.agg")
     assert site.confidence <= 0.9 and "float branch" in site.message
+
+
+def test_observed_false_on_keys_that_are_not_categories_changes_nothing() -> None:
+    # observed=False adds the unseen categories of a Categorical key; text and number keys
+    # have none
+    result = differential(FRAME + 'r = df.groupby(["shop", "n"], observed=False)["qty"].sum()\n', "r")
+    assert "TODO" not in result.converted_text
+
+
+def test_observed_false_on_a_category_key_stays_todo() -> None:
+    check_todo(FRAME + 'df["shop"] = df["shop"].astype("category")\n'
+               'r = df.groupby("shop", observed=False)["qty"].sum()\n', "frame.groupby")

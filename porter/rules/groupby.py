@@ -106,7 +106,8 @@ def groupby(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: rows with a missing key are dropped (dropna=True); keys sorted (sort=True) or in
     order of first appearance (sort=False); keys as the index (as_index=True); group_keys
     (only apply reads it, and only for a result like-indexed to each group: porter keeps it
-    for the apply it hands to pandas).
+    for the apply it hands to pandas); observed=False where every key's type is known and none
+    is a category (it adds only a Categorical key's unseen categories).
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
@@ -125,7 +126,9 @@ def groupby(call: PandasCall, ctx: RuleContext) -> Value:
         keys = column_names(keys_const, "the group keys")
     if not all(isinstance(k, str) for k in keys):
         raise Unsupported("grouping by something other than column names")
-    if call.const("observed", None, True) is not True:
+    if call.const("observed", None, True) is not True \
+            and not all(frame.dtype(k) in ("str", "int", "float", "bool", "date", "datetime") for k in keys):
+        # observed=False only adds the unseen categories of a Categorical key
         raise Unsupported("observed=False adds unseen categories")
     if any(frame.dtype(k) == "category" for k in keys):
         ctx.lower("category keys sort by their categories in pandas; porter sorts by text, which "
