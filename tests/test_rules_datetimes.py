@@ -11,7 +11,7 @@ import polars as pl
 import pytest
 
 from rule_checks import check_ports, check_todo, check_unchanged
-from support import convert, differential, run
+from support import convert, differential, run, same_text
 
 # A Monday and a Sunday (weekday numbering), a leap day twice (duplicates), the last day of a
 # common and of a leap year (day of year 365 / 366), midnight, and both kinds of missing value.
@@ -1029,3 +1029,30 @@ def test_to_datetime_of_a_written_date_matches_pandas(expr: str) -> None:
 
 def test_to_datetime_of_today_stays_todo() -> None:
     check_todo(CALENDAR_FRAME + 'result = df[df["t"] < pd.to_datetime("today")]\n', "pd.to_datetime")
+
+
+@pytest.mark.parametrize("unit, values", [
+    ("s", [0, 1700000000, -86400, 951782400]),
+    ("ms", [0, 1700000000123, -1, 951782400999]),
+    ("us", [0, 1700000000123456, 86400000001]),
+])
+def test_to_datetime_of_epoch_numbers_matches_pandas(unit: str, values: list[int]) -> None:
+    result = differential(HEAD + f'df = pd.DataFrame({{"n": {values}}})\n'
+                          f'df["t"] = pd.to_datetime(df["n"], unit="{unit}")\n'
+                          'df["d"] = df["t"].dt.strftime("%Y-%m-%d %H:%M:%S.%f")\nresult = df\n')
+    assert "from_epoch" in result.converted_text
+
+
+def test_to_datetime_of_epoch_fractions_stays_todo() -> None:
+    check_todo(HEAD + 'df = pd.DataFrame({"n": [1.5, 2.0]})\nresult = pd.to_datetime(df["n"], unit="s")\n',
+               "pd.to_datetime")
+
+
+def test_epoch_dates_are_written_as_pandas_writes_them(tmp_path) -> None:
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("e.csv")
+        df["t"] = pd.to_datetime(df["n"], unit="s")
+        df.to_csv("o.csv", index=False)
+        print(df["t"].max())
+        """, tmp_path, {"e.csv": "k,n\na,0\nb,1700000000\nd,951782400\n"})

@@ -612,6 +612,22 @@ def parse_format(fmt: str, ctx: RuleContext, *, years_fixed: bool = False) -> st
     return fmt
 
 
+def _from_epoch(call: PandasCall, column: Value, ctx: RuleContext) -> Value:
+    """pd.to_datetime(col, unit="s" / "ms" / "us") of whole numbers -> pl.from_epoch(col,
+    unit) in porter's microseconds; a missing number is NaT in both."""
+    unit = call.const("unit", None, None)
+    if unit not in ("s", "ms", "us") or call.has("format") or call.has("errors"):
+        raise ctx.todo(f"unit={unit!r} (porter reads whole seconds, milliseconds or "
+                       "microseconds since 1970, without format= or errors=)")
+    if not isinstance(column, Column) or column.dtype != "int":
+        raise ctx.todo("unit= of something other than a column of whole numbers (pandas reads "
+                       "fractions too)")
+    code = emit.pl("from_epoch", column.code, time_unit=unit)
+    if unit != "us":
+        code = code.method("cast", emit.atom('pl.Datetime("us")'))
+    return derived_column(column, code, dtype="datetime")
+
+
 @rule("pd.to_datetime")
 def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
     """pd.to_datetime(col, format=, errors=) -> col.str.replace(pandas' pattern, one layout)
@@ -638,10 +654,13 @@ def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
     missing here; a year in non-ASCII digits ("２024") and year 0000 in an ISO format (an error
     in pandas even with errors="coerce") are missing here; a list or a frame stays on
     pandas. A date written in the script (pd.to_datetime("2024-03-01"), format= allowed) is
-    the Timestamp pandas reads from it at convert time, as pd.Timestamp.
+    the Timestamp pandas reads from it at convert time, as pd.Timestamp. unit="s" / "ms" /
+    "us" of whole numbers is pl.from_epoch; fractions and other units are TODOs.
     """
-    ctx.reject_unknown(call, "arg", "errors", "format", positional=1)
+    ctx.reject_unknown(call, "arg", "errors", "format", "unit", positional=1)
     column = call.arg("arg", 0)
+    if call.has("unit"):
+        return _from_epoch(call, column, ctx)
     if isinstance(column, Opaque) and isinstance(column.const, str) and not call.has("errors"):
         # pd.to_datetime("2024-03-01"): a Timestamp, as pd.Timestamp("2024-03-01") is
         fmt = call.const("format", None, None)
