@@ -1182,3 +1182,14 @@ def test_small_floats_of_series_and_keys_are_written_as_pandas_writes_them(write
         df = pd.read_csv("t.csv")
         {write}
         """, tmp_path, {"t.csv": "k,v,f\na,1,0.00005\na,2,0.00005\nb,3,1.5e-07\nb,4,-0.0000123\n"})
+
+
+def test_blank_lines_make_no_integer_column_float(tmp_path: Path) -> None:
+    # pandas skips the blank line: n stays int64 (written 1700000000, not 1700000000.0)
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("e.csv")
+        df["m"] = df["n"] * 2
+        df.to_csv("o.csv", index=False)
+        print(df["n"].tolist())
+        """, tmp_path, {"e.csv": "n\n0\n1700000000\n\n951782400\n"})

@@ -253,8 +253,13 @@ def _missing_ints_as_floats(file: Path, schema: Any, options: dict[str, Any]) ->
     found = dict(schema)
     if not ints or file.stat().st_size > SAMPLE_SCAN_LIMIT:
         return found, set()
-    counts = pl.scan_csv(file, **scan_kwargs(options)).select(
-        pl.col(ints).null_count()).collect().row(0, named=True)
+    frame = pl.scan_csv(file, **scan_kwargs(options))
+    blank, empty = _blank_lines(file, scan_kwargs(options))
+    if blank and not empty:
+        # pandas skips blank lines, which Polars reads as rows of missing values: they make
+        # no integer column float
+        frame = frame.filter(~pl.all_horizontal(pl.all().is_null()))
+    counts = frame.select(pl.col(ints).null_count()).collect().row(0, named=True)
     for name in ints:
         if counts[name]:
             found[name] = pl.Float64
