@@ -6,6 +6,7 @@ from __future__ import annotations
 import ast
 import textwrap
 from dataclasses import dataclass, field, replace
+from collections.abc import Callable
 from typing import Any
 
 import libcst as cst
@@ -190,6 +191,11 @@ class _Walker:
         # which handover.text_categories reads through the name
         self.dtype_names: dict[str, cst.BaseExpression] = {}
         self.period_names: set[str] = set()  # names bound to pandas' Period values
+        # the loops and functions around the statement at hand, outermost first (first and
+        # last line): a statement in them runs again after the lines that follow it
+        self.spans: list[tuple[int, int]] = []
+        self._bound: dict[str, list[int]] | None = None  # see bound_lines
+        self._bindings: list[tuple[list[str], ast.AST]] = []
 
     # blocks ---------------------------------------------------------------------------------
     def block(self, body: Any, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
@@ -312,7 +318,9 @@ class _Walker:
                 local.pop(name, None)
         outer = self.function
         self.function = self.services.function_at_hand = stmt.name.value
+        self.spans.append(self.services.position(stmt))
         body, _ = self.indented(stmt.body, local, unit, indent)
+        self.spans.pop()
         self.function = self.services.function_at_hand = outer
         return stmt.with_changes(body=body)
 
@@ -392,6 +400,7 @@ class _Walker:
             changes["test"] = self.header(stmt.test, env, stmt)
             loop_env = dict(env)
         self.loop_depth += 1
+        self.spans.append(self.services.position(stmt))
         # A second round through the body sees what the first round changed.
         emit_code, self.emit_code = self.emit_code, False
         saved, header_sites_to = len(self.sites), len(self.header_sites)
@@ -425,6 +434,7 @@ class _Walker:
                 changes["test"] = self.header(stmt.test, header_env, stmt)
         body, after = self.indented(stmt.body, widened, unit, indent)
         self.loop_depth -= 1
+        self.spans.pop()
         changes["body"] = body
         if stmt.orelse is not None:
             else_body, after = self.indented(stmt.orelse.body, after, unit, indent)
@@ -491,26 +501,139 @@ class _Walker:
         return [*before, kept], env
 
     def frames_changed_by_a_loop(self, stmt: cst.For, env: dict[str, Value]) -> tuple[list[str], SiteDraft | None]:
-        """`for frame in [a, b]: frame["c"] = ...` changes a and b: each is handed to pandas in
-        its own name before the loop (env changed), so the loop changes them and not copies."""
-        target = stmt.target
-        items = stmt.iter.elements if isinstance(stmt.iter, (cst.List, cst.Tuple)) else ()
-        names = [e.value.value for e in items if isinstance(e.value, cst.Name)]
-        if not (isinstance(target, cst.Name) and names and len(names) == len(items)
-                and target.value in changes_in_place(stmt.body)
-                and any(isinstance(env.get(n), Frame) for n in names)):
+        """`for frame in [a, b]: frame["c"] = ...` (or over `zip([a, b], names)`,
+        `enumerate(...)`, `[(a, "a"), ...]`) changes a and b: each is handed to pandas in its
+        own name before the loop (env changed), so the loop changes them and not copies
+        (shared_frames). They come back to Polars after the loop unless a loop variable is
+        read after it."""
+        start, end = self.services.position(stmt)
+        try:
+            held = _held_names(ast.parse(self.services.code_for(stmt.iter).strip(), mode="eval").body)
+            aliases = _stored_names(ast.parse(self.services.code_for(stmt.target).strip(), mode="eval").body)
+        except SyntaxError:
             return [], None
-        lines = []
-        for name in dict.fromkeys(names):
-            value = env.get(name)
-            if isinstance(value, Frame):
-                self.note_handed_over(name, value)
-                lines.append(f"{name} = {handover.to_pandas(value).text}")
-                env[name] = PandasValue(emit.atom(name), frame=_after_change(name, value, None))
+        names = self.shared_frames(held, aliases, env, start - 1)
+        if not names:
+            return [], None
+        reach = self.reached_through(aliases)
+        stays = any(line > end for n in reach for line in self.services.name_lines.get(n, ()))
+        lines = self.hand_over_shared(names, env, stays)
         site = SiteDraft("frame.changed_in_a_loop", "handover", "todo", 0.0,
                          f"the loop changes {', '.join(f'`{n}`' for n in names)} in place through "
-                         "its variable: each is handed to pandas first", *self.services.position(stmt))
+                         f"{', '.join(f'`{n}`' for n in aliases)}: each is handed to pandas first"
+                         + (" and stays there (a loop variable is read after the loop)" if stays else ""),
+                         start, end)
         return lines, site
+
+    # frames reachable through another name ---------------------------------------------------
+    def shared_frames(self, held: list[str], aliases: list[str], env: dict[str, Value],
+                      after: int, changed_by_call: bool = False) -> list[str]:
+        """Of the frames a statement hands on as they are (`held`: `jan` in `frames = [jan]`,
+        `target = jan if c else feb`, `for d, n in zip([jan, feb], names)`), those pandas may
+        change through a second name, which a Polars rewrite (a copy handed over, a name
+        rebound) would lose: every one when a change in place goes through a name that holds
+        them (`aliases`, or a name bound from those: `for k, d in frames.items()`) or the
+        statement gives them to a function that changes things in place; otherwise each that
+        is changed in place itself after the statement (a list built before `jan["c"] = ...`).
+        `after` is the last line before those changes."""
+        frames = [n for n in dict.fromkeys(held) if isinstance(env.get(n), Frame)]
+        if not frames:
+            return []
+        if changed_by_call or any(self.changed_since(n, after, own=False)
+                                  for n in self.reached_through(aliases)):
+            return frames
+        return [n for n in frames if self.changed_since(n, after, own=True)]
+
+    def changed_since(self, name: str, after: int, own: bool) -> bool:
+        """Whether the script changes `name`'s object in place after line `after`, or anywhere in
+        the loop or function around the statement (it runs again); in a loop that binds the
+        frame's own name afresh, a change before the statement is to the next frame."""
+        span = self.spans[0] if self.spans else None
+        for line in self.services.changed_in_place.get(name, ()):
+            if line > after:
+                return True
+            if span is not None and span[0] <= line <= span[1] and not (
+                    own and any(span[0] <= b <= span[1] for b in self.bound_lines().get(name, ()))):
+                return True
+        return False
+
+    def bound_lines(self) -> dict[str, list[int]]:
+        """Where each name is bound (assigned, a loop's or a `with`'s target)."""
+        if self._bound is None:
+            self._bound, self._bindings = _bindings(self.services.python_module)
+        return self._bound
+
+    def reached_through(self, names: list[str]) -> set[str]:
+        """`names` and every name bound to an object one of them holds (`d` in
+        `for k, d in frames.items()`, `first = frames[0]`), anywhere in the script."""
+        self.bound_lines()
+        found = set(names)
+        grew = bool(found)
+        while grew:
+            grew = False
+            for targets, value in self._bindings:
+                if not set(targets) <= found and set(_held_names(value, frozenset(found))) & found:
+                    found |= set(targets)
+                    grew = True
+        return found
+
+    def hand_over_shared(self, names: list[str], env: dict[str, Value], stays: bool) -> list[str]:
+        """Each frame of `names` handed to pandas in its own name (env changed): a frame that
+        stays there (another name may hold it) never comes back to Polars."""
+        lines = []
+        for name in names:
+            value = env[name]
+            assert isinstance(value, Frame)
+            self.note_handed_over(name, value)
+            lines += self.hand_over_expressions_of(name, env, None)
+            lines.append(f"{name} = {handover.to_pandas(value).text}")
+            env[name] = PandasValue(emit.atom(name),
+                                    frame=None if stays else _after_change(name, value, None))
+        return lines
+
+    def hand_over_aliased(self, stmt: cst.BaseSmallStatement, env: dict[str, Value]) -> tuple[list[str], list[SiteDraft]]:
+        """A statement that makes a frame reachable through another name (`frames = [jan, feb]`,
+        `target = jan if c else feb`, `a, b = jan, feb`, `frames.append(df)`,
+        `months["jan"] = jan`, `tag_all([jan, feb])` of the script's own function that changes
+        things in place), where pandas may see a change in place through either: the frames are
+        handed to pandas in their own names first and stay there, so both names hold one
+        object as in pandas (shared_frames)."""
+        try:
+            tree = ast.parse(self.services.code_for(stmt).strip())
+        except SyntaxError:
+            return [], []
+        if len(tree.body) != 1:
+            return [], []
+        held, aliases = _shared_by(tree.body[0], lambda n: isinstance(env.get(n), Frame))
+        by_call: list[str] = []
+        called: list[str] = []
+        for node in ast.walk(tree.body[0]):
+            if isinstance(node, ast.Call) and isinstance(node.func, ast.Name) \
+                    and node.func.id in self.services.function_defs \
+                    and changes_in_place(self.services.function_defs[node.func.id].body):
+                found = [n for a in [*node.args, *(k.value for k in node.keywords)]
+                         if not isinstance(a, ast.Name) for n in _held_names(a)]
+                if any(isinstance(env.get(n), Frame) for n in found):
+                    by_call += found
+                    called.append(node.func.id)
+        start, end = self.services.position(stmt)
+        names = self.shared_frames(held, aliases, env, end)
+        lines = self.hand_over_shared(names, env, stays=True)
+        stays = bool(names)
+        # given to the function only: nothing holds them after the call
+        passed = self.shared_frames(by_call, [], env, end, changed_by_call=True)
+        lines += self.hand_over_shared(passed, env, stays=False)
+        names += passed
+        if not names:
+            return [], []
+        through = [f"`{n}`" for n in aliases] + [f"`{f}()`" for f in called]
+        site = SiteDraft("frame.shared", "handover", "todo", 0.0,
+                         f"{', '.join(f'`{n}`' for n in names)} can also be reached through "
+                         f"{', '.join(through)}, and pandas sees a change in place through "
+                         "either name: " + ("each is handed to pandas and stays there"
+                                            if stays else "each is handed to pandas first"),
+                         start, end)
+        return lines, [site]
 
     def iterrows_appends(self, stmt: cst.For, env: dict[str, Value], indent: str) -> list[Any] | None:
         """`for _, row in df.iterrows():` whose body only appends one value per row to lists
@@ -731,7 +854,9 @@ class _Walker:
                 sites), []
 
     def rewrite_small(self, stmt: cst.BaseSmallStatement, env: dict[str, Value], indent: str) -> tuple[str | None, list[SiteDraft]]:
+        shared, shared_sites = self.hand_over_aliased(stmt, env)
         handed, handed_sites = self.hand_over_changed(stmt, env)
+        handed, handed_sites = [*shared, *handed], [*shared_sites, *handed_sites]
         text, sites = self._small(stmt, env, indent)
         if not handed:
             return text, sites
@@ -1341,6 +1466,104 @@ class _Walker:
             code = Evaluator(env, self.services).handed_to_unknown(value, cst.Name(name)).code
             env[name] = PandasValue(emit.atom(name))
         return emit.layout_chain(code, indent, f"{name} = "), list(value.sites)
+
+
+# -- frames reachable through another name (Engine.shared_frames) ----------------------------
+
+# calls that hand on the objects they are given (a zip of frames gives the frames themselves)
+_PASSES_ON = frozenset({"zip", "enumerate", "list", "tuple", "reversed", "iter", "dict", "set"})
+# a container's methods that give its items themselves
+_ITEMS_OF = frozenset({"items", "values", "get", "pop", "copy", "setdefault"})
+# list, dict and set methods that store what they are given
+_STORES = frozenset({"append", "extend", "insert", "add", "update", "setdefault"})
+
+
+def _held_names(node: ast.AST, containers: frozenset[str] = frozenset()) -> list[str]:
+    """The names whose objects `node` hands on as they are (never a copy or a value computed
+    from them): the expression itself, the items of a list, tuple, set or dict written out,
+    both branches of `a if c else b`, what zip/enumerate/list/... are given, and a container of
+    `containers` read for its items (`frames[0]`, `frames.items()`)."""
+    if isinstance(node, ast.Name):
+        return [node.id]
+    if isinstance(node, (ast.List, ast.Tuple, ast.Set)):
+        return [n for e in node.elts for n in _held_names(e, containers)]
+    if isinstance(node, ast.Starred):
+        return _held_names(node.value, containers)
+    if isinstance(node, ast.Dict):
+        return [n for v in node.values for n in _held_names(v, containers)]
+    if isinstance(node, ast.IfExp):
+        return _held_names(node.body, containers) + _held_names(node.orelse, containers)
+    if isinstance(node, ast.Call) and isinstance(node.func, ast.Name) and node.func.id in _PASSES_ON:
+        return [n for a in [*node.args, *(k.value for k in node.keywords)]
+                for n in _held_names(a, containers)]
+    if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
+            and node.func.attr in _ITEMS_OF:
+        return [n for n in _held_names(node.func.value, containers) if n in containers]
+    if isinstance(node, ast.Subscript):
+        return [n for n in _held_names(node.value, containers) if n in containers]
+    return []
+
+
+def _stored_names(target: ast.AST) -> list[str]:
+    """The names an assignment target holds the value in: `a, b` both, `box["k"]` box."""
+    if isinstance(target, ast.Name):
+        return [target.id]
+    if isinstance(target, (ast.Tuple, ast.List)):
+        return [n for e in target.elts for n in _stored_names(e)]
+    if isinstance(target, ast.Starred):
+        return _stored_names(target.value)
+    while isinstance(target, (ast.Subscript, ast.Attribute)):
+        target = target.value
+    return [target.id] if isinstance(target, ast.Name) else []
+
+
+def _shared_by(stmt: ast.stmt, is_frame: Callable[[str], bool]) -> tuple[list[str], list[str]]:
+    """(names whose objects the statement stores, the names it stores them in) for an
+    assignment (`frames = [jan, feb]`, `a, b = jan, feb`, `box["k"] = jan`) or a container's
+    storing method (`frames.append(df)`); `view = df` is Engine.bind's (frame.alias)."""
+    if isinstance(stmt, ast.Assign) and not (
+            len(stmt.targets) == 1 and isinstance(stmt.targets[0], ast.Name)
+            and isinstance(stmt.value, ast.Name)):
+        return _held_names(stmt.value), [n for t in stmt.targets for n in _stored_names(t)]
+    if isinstance(stmt, (ast.AugAssign, ast.AnnAssign)) and stmt.value is not None:
+        return _held_names(stmt.value), _stored_names(stmt.target)
+    if isinstance(stmt, ast.Expr) and isinstance(stmt.value, ast.Call) \
+            and isinstance(stmt.value.func, ast.Attribute) and stmt.value.func.attr in _STORES:
+        owner = _stored_names(stmt.value.func.value)
+        if owner and not is_frame(owner[0]):  # not a frame's own update() or insert()
+            return [n for a in stmt.value.args for n in _held_names(a)], owner
+    return [], []
+
+
+def _bindings(module: ast.Module | None) -> tuple[dict[str, list[int]], list[tuple[list[str], ast.AST]]]:
+    """Where each name is bound, and every (names, value) binding of the script: assignments,
+    loops (their names take the items of what they iterate), `with ... as`, and a
+    container's storing methods (`others.append(x)`)."""
+    lines: dict[str, list[int]] = {}
+    found: list[tuple[list[str], ast.AST]] = []
+    if module is None:
+        return lines, found
+    for node in ast.walk(module):
+        pairs: list[tuple[ast.AST, ast.AST]] = []
+        if isinstance(node, ast.Assign):
+            pairs = [(t, node.value) for t in node.targets]
+        elif isinstance(node, (ast.AugAssign, ast.AnnAssign)) and node.value is not None:
+            pairs = [(node.target, node.value)]
+        elif isinstance(node, (ast.For, ast.AsyncFor, ast.comprehension)):
+            pairs = [(node.target, node.iter)]
+        elif isinstance(node, ast.withitem) and node.optional_vars is not None:
+            pairs = [(node.optional_vars, node.context_expr)]
+        elif isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
+                and node.func.attr in _STORES:
+            pairs = [(node.func.value, a) for a in node.args]
+        for target, value in pairs:
+            names = _stored_names(target)
+            found.append((names, value))
+            if isinstance(node, ast.Call):
+                continue
+            for name in names:
+                lines.setdefault(name, []).append(getattr(node, "lineno", getattr(value, "lineno", 0)))
+    return lines, found
 
 
 # pandas methods that change their frame or Series in place (and have no rule that rewrites the
