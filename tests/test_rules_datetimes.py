@@ -97,7 +97,6 @@ TODOS = [
     pytest.param('pd.to_datetime(df["n"])', "pd.to_datetime", id="numbers are epoch nanoseconds"),
     pytest.param('df["t"].dt.strftime("%c")', "series.dt.strftime", id="strftime locale format"),
     pytest.param('df["t"].dt.round("h")', "series.dt.round", id="round"),
-    pytest.param('df["t"].dt.floor("h")', "series.dt.floor", id="floor"),
     pytest.param('df["t"].dt.ceil("h")', "series.dt.ceil", id="ceil"),
     pytest.param('df["t"].dt.tz_localize("UTC")', "series.dt.tz_localize", id="tz_localize"),
     pytest.param('df["t"].dt.to_period("M")', "series.periods", id="to_period kept"),
@@ -119,6 +118,7 @@ def test_todo(before: str, key: str) -> None:
 
 
 @pytest.mark.parametrize("before, key", [
+    pytest.param('df["t"].dt.floor("W")', "series.dt.floor", id="floor to a calendar week"),
     pytest.param('df["t"].dt.tz_convert("UTC")', "series.dt.tz_convert", id="tz_convert"),
     pytest.param('df["t"].dt.day_name(locale="de_DE.utf8")', "series.dt.day_name", id="locale"),
     pytest.param('pd.to_datetime(df["raw"], format="%Y-%m-%d", errors="ignore")',
@@ -1056,3 +1056,13 @@ def test_epoch_dates_are_written_as_pandas_writes_them(tmp_path) -> None:
         df.to_csv("o.csv", index=False)
         print(df["t"].max())
         """, tmp_path, {"e.csv": "k,n\na,0\nb,1700000000\nd,951782400\n"})
+
+
+@pytest.mark.parametrize("freq", ["15min", "2h", "D", "3D", "h", "45s", "min"])
+def test_dt_floor_matches_pandas(freq: str) -> None:
+    result = differential(_calendar(f'df["t"].dt.floor("{freq}")'), "result", "result_empty")
+    assert "truncate" in result.converted_text
+
+
+def test_dt_floor_with_options_stays_todo() -> None:
+    check_todo(CALENDAR_FRAME + 'result = df["t"].dt.floor("15min", ambiguous="NaT")\n', "series.dt.floor")

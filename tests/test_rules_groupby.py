@@ -1032,3 +1032,10 @@ def test_observed_false_on_keys_that_are_not_categories_changes_nothing() -> Non
 def test_observed_false_on_a_category_key_stays_todo() -> None:
     check_todo(FRAME + 'df["shop"] = df["shop"].astype("category")\n'
                'r = df.groupby("shop", observed=False)["qty"].sum()\n', "frame.groupby")
+
+
+def test_nunique_dropna_false_counts_missing_values_once() -> None:
+    # NaN and None are one missing value to pandas
+    result = differential(FRAME + 'r = (df["qty"].nunique(dropna=False), df["shop"].nunique(dropna=False),'
+                          ' df["n"].nunique(dropna=False), df["t"].nunique(dropna=True))\n', "r")
+    assert "TODO" not in result.converted_text

@@ -107,6 +107,32 @@ def normalize(call: PandasCall, ctx: RuleContext) -> Value:
     return _result(column, _dt(column).method("truncate", "1d"), "datetime")
 
 
+_FIXED_FLOOR = re.compile(r"^([1-9][0-9]*)?(D|h|min|s|ms|us)$")
+_POLARS_UNIT = {"D": "d", "h": "h", "min": "m", "s": "s", "ms": "ms", "us": "us"}
+
+
+@rule("series.dt.floor")
+def floor(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.dt.floor("15min") -> dt.truncate("15m"): the start of the fixed-length step holding
+    each value, steps counted from 1970-01-01 in both (before 1970 too).
+
+    Handles: multiples of days, hours, minutes, seconds, milliseconds and microseconds; NaT
+    stays missing; a column with a time zone is floored in its local time in both.
+    Caveats: weeks, months and other calendar frequencies (pandas raises for them), the
+    ambiguous/nonexistent options and a frequency computed at run time are TODOs.
+    """
+    column = accessor_column(call)
+    ctx.reject_unknown(call, "freq", positional=1)
+    if column.dtype not in (None, "datetime"):
+        raise ctx.todo(f"a {column.dtype} column")
+    freq = call.const("freq", 0, None)
+    found = _FIXED_FLOOR.match(freq) if isinstance(freq, str) else None
+    if found is None:
+        raise ctx.todo(f"freq={freq!r}: porter floors to multiples of D, h, min, s, ms, us")
+    every = f"{found.group(1) or 1}{_POLARS_UNIT[found.group(2)]}"
+    return _result(column, _dt(column).method("truncate", every), "datetime")
+
+
 @dataclass(frozen=True)
 class Periods(Column):
     """s.dt.to_period(freq): pandas' Period values, which Polars has no type for. Only their

@@ -448,7 +448,8 @@ def scalar_of(column: Column, expr: Code, pytype: str | None = None, *,
 def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
     """s.sum() / mean / median / min / max / std / var / count / nunique -> a Python scalar.
 
-    Handles: missing values are skipped (nunique does not count them); the sum of text joins
+    Handles: missing values are skipped (nunique does not count them; with dropna=False they
+    count once); the sum of text joins
     the texts; std/var with ddof=1;
     the mean, median, std, var (and the min and max of a float column) of no values (an empty
     selection, only missing values, the std of one value) are NaN in pandas and None in
@@ -459,9 +460,13 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
     """
     column = call.receiver
     assert isinstance(column, Column)
-    ctx.reject_unknown(call, "ddof", "skipna", "numeric_only")
+    ctx.reject_unknown(call, "ddof", "skipna", "numeric_only",
+                       *(("dropna",) if call.name == "nunique" else ()))
     if call.const("skipna", None, True) is not True:
         raise Unsupported("skipna=False")
+    dropna = call.const("dropna", None, True)
+    if dropna not in (True, False):
+        raise Unsupported("dropna computed at run time")
     how = call.name
     code = ctx.bool_expr(column, column.frame) if column.dtype == "bool" else column.code
     if column.dtype == "duration" and how in ("std", "var"):
@@ -476,6 +481,9 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         return replace(scalar, code=value, agg=replace(scalar.agg, dtype="duration"))
     if how in ("std", "var"):
         expr = code.method(how, ddof=call.const("ddof", None, 1))
+    elif how == "nunique" and dropna is False:
+        # a missing value (NaN or None, one value to pandas) counts once
+        expr = code.method("n_unique").method("cast", emit.atom("pl.Int64"))
     elif how in ("count", "nunique"):
         expr = agg_expr(code, how)
     elif how == "sum" and column.dtype == "bool":
