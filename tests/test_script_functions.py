@@ -11,7 +11,7 @@ import textwrap
 import pytest
 
 from porter.api import convert_source
-from support import differential
+from support import differential, same_text
 
 # tons has missing values and a NaN-free float; names have stray spaces, case and unicode
 CARGO = ("berth,kind,tons,crates,skipper\nA,grain,5.0,3, ada lind\nB,timber,,2,BO ÅSTRÖM\n"
@@ -194,3 +194,94 @@ def test_a_column_helper_called_on_two_columns_is_ported():
         ''', "result")
     assert "TODO(porter)" not in text, text
     assert 'tidy(pl.col("skipper"))' in text
+
+
+# -- functions that read or change the module's frames (not given as parameters) ----------------
+
+SALES = {"t.csv": "k,v,n\na,1.5,1\nb,,2\nc,-2,\nd,4,4\n", "r.csv": "k,rate\na,0.5\nb,2\n"}
+
+
+def test_a_helper_that_changes_a_module_frame_defined_after_it(tmp_path):
+    result = same_text("""
+        import pandas as pd
+        def add_tax():
+            sales["tax"] = sales["v"] * 0.2
+        sales = pd.read_csv("t.csv")
+        add_tax()
+        sales["w"] = sales["tax"] + 1
+        sales.to_csv("o.csv", index=False)
+        """, tmp_path, SALES)
+    assert "function.module_frame" in result.converted_text
+
+
+def test_a_lookup_helper_applied_to_a_column_reads_a_module_frame(tmp_path):
+    same_text("""
+        import pandas as pd
+        rates = pd.read_csv("r.csv")
+        def rate_for(k):
+            hit = rates.loc[rates["k"] == k, "rate"]
+            return hit.iloc[0] if len(hit) else 1.0
+        df = pd.read_csv("t.csv")
+        df["r"] = df["k"].apply(rate_for)
+        df.to_csv("o.csv", index=False)
+        """, tmp_path, SALES)
+
+
+def test_a_progress_helper_reads_the_frame_as_it_is_at_each_call(tmp_path):
+    same_text("""
+        import pandas as pd
+        def report(label):
+            print(f"{label}: rows={len(df)} total={df['v'].sum():.2f}")
+        df = pd.read_csv("t.csv")
+        report("raw")
+        df = df[df["v"].notna()]
+        report("no-nan")
+        df["v2"] = df["v"] * 2
+        df.to_csv("o.csv", index=False)
+        """, tmp_path, SALES)
+
+
+def test_a_helper_of_a_frame_later_rebound_and_sorted(tmp_path):
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("t.csv")
+        def pos_total():
+            return df.loc[df["v"] > 0, "v"].sum()
+        print(pos_total())
+        df["w"] = df["v"].fillna(10)
+        df = df.sort_values("w")
+        df.to_csv("o.csv")
+        print(pos_total())
+        """, tmp_path, SALES)
+
+
+def test_step_functions_that_bind_a_global_frame(tmp_path):
+    result = same_text("""
+        import pandas as pd
+        df = None
+        def load():
+            global df
+            df = pd.read_csv("t.csv")
+            df["v"] = df["v"].fillna(0)
+        def enrich():
+            global df
+            df = df[df["v"] >= 0]
+            df["w"] = df["v"] * 2
+        load()
+        enrich()
+        print(len(df))
+        df.to_csv("o.csv", index=False)
+        """, tmp_path, SALES)
+    assert "TODO(porter): function.module_frame" in result.converted_text
+
+
+def test_a_module_frame_bound_once_and_only_read_keeps_the_helper_ported(tmp_path):
+    result = same_text("""
+        import pandas as pd
+        rates = pd.read_csv("r.csv")
+        def with_rates(frame):
+            return frame.merge(rates, on="k", how="left")
+        df = with_rates(pd.read_csv("t.csv"))
+        df.to_csv("o.csv", index=False)
+        """, tmp_path, SALES)
+    assert "function.module_frame" not in result.converted_text

@@ -20,7 +20,8 @@ from porter.model import SiteDraft
 from porter.translate import handover, imports as import_edits
 from porter.translate.functions import (
     COLUMNS, EXPRESSION_ROWS, discover_functions, function_definitions, learn_functions,
-    marked_as_applied, ported_where_applied, removed_note,
+    hand_over_module_frames, handed_over_inside, marked_as_applied, module_frames_in_body,
+    ported_where_applied, removed_note,
 )
 from porter.rules.assign import FRAME_STAYS_PANDAS, INTERVAL_MAKERS
 from porter.translate.writes import batch_writes, is_sink_text
@@ -316,10 +317,21 @@ class _Walker:
                                      pytype="str")
             else:
                 local.pop(name, None)
+        kept = module_frames_in_body(stmt, local, self.services)
+        if kept is not None:
+            # `global df` rebinding the module's frame: the body stays as written (pandas), and
+            # the statements that call it hand the frame to pandas first
+            self.record((kept,))
+            return stmt.with_changes(leading_lines=[*stmt.leading_lines, *_todo_comments([kept], stmt)])
         outer = self.function
         self.function = self.services.function_at_hand = stmt.name.value
         self.spans.append(self.services.position(stmt))
+        saved, header_saved = len(self.sites), len(self.header_sites)
         body, _ = self.indented(stmt.body, local, unit, indent)
+        if handed_over_inside(stmt, body, local, self.services):
+            # a module's frame handed to pandas in the body: ported again with it left pandas
+            del self.sites[saved:], self.header_sites[header_saved:]
+            body, _ = self.indented(stmt.body, local, unit, indent)
         self.spans.pop()
         self.function = self.services.function_at_hand = outer
         return stmt.with_changes(body=body)
@@ -518,9 +530,10 @@ class _Walker:
         reach = self.reached_through(aliases)
         stays = any(line > end for n in reach for line in self.services.name_lines.get(n, ()))
         lines = self.hand_over_shared(names, env, stays)
+        through = self.changed_through(aliases, start - 1) or names
         site = SiteDraft("frame.changed_in_a_loop", "handover", "todo", 0.0,
                          f"the loop changes {', '.join(f'`{n}`' for n in names)} in place through "
-                         f"{', '.join(f'`{n}`' for n in aliases)}: each is handed to pandas first"
+                         f"{', '.join(f'`{n}`' for n in through)}: each is handed to pandas first"
                          + (" and stays there (a loop variable is read after the loop)" if stays else ""),
                          start, end)
         return lines, site
@@ -543,6 +556,11 @@ class _Walker:
                                   for n in self.reached_through(aliases)):
             return frames
         return [n for n in frames if self.changed_since(n, after, own=True)]
+
+    def changed_through(self, aliases: list[str], after: int) -> list[str]:
+        """The names holding what `aliases` hold that a change in place goes through."""
+        return sorted(n for n in self.reached_through(aliases)
+                      if self.changed_since(n, after, own=False))
 
     def changed_since(self, name: str, after: int, own: bool) -> bool:
         """Whether the script changes `name`'s object in place after line `after`, or anywhere in
@@ -626,13 +644,21 @@ class _Walker:
         names += passed
         if not names:
             return [], []
-        through = [f"`{n}`" for n in aliases] + [f"`{f}()`" for f in called]
+        shown = ", ".join(f"`{n}`" for n in names)
+        holders = ", ".join(f"`{n}`" for n in aliases)
+        via = self.changed_through(aliases, end)
+        if via:
+            why = f"{shown} can also be reached through {holders}, and pandas sees a change " \
+                  f"made in place through {', '.join(f'`{n}`' for n in via)} through every name"
+        elif stays:
+            why = f"{holders} holds the objects {shown}, changed in place later, and pandas' " \
+                  f"{holders} sees that change"
+        else:
+            why = f"{shown} are given to {', '.join(f'`{f}()`' for f in called)}, which " \
+                  "changes things in place, and pandas changes the caller's frames"
         site = SiteDraft("frame.shared", "handover", "todo", 0.0,
-                         f"{', '.join(f'`{n}`' for n in names)} can also be reached through "
-                         f"{', '.join(through)}, and pandas sees a change in place through "
-                         "either name: " + ("each is handed to pandas and stays there"
-                                            if stays else "each is handed to pandas first"),
-                         start, end)
+                         why + (": each is handed to pandas and stays there" if stays
+                                else ": each is handed to pandas first"), start, end)
         return lines, [site]
 
     def iterrows_appends(self, stmt: cst.For, env: dict[str, Value], indent: str) -> list[Any] | None:
@@ -857,6 +883,8 @@ class _Walker:
         shared, shared_sites = self.hand_over_aliased(stmt, env)
         handed, handed_sites = self.hand_over_changed(stmt, env)
         handed, handed_sites = [*shared, *handed], [*shared_sites, *handed_sites]
+        moved, moved_sites = hand_over_module_frames(self, stmt, env, _after_change)
+        handed, handed_sites = [*moved, *handed], [*moved_sites, *handed_sites]
         text, sites = self._small(stmt, env, indent)
         if not handed:
             return text, sites

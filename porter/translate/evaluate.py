@@ -123,6 +123,8 @@ class Services:
     # functions whose result's row labels are read where they are called (`a = heavy(h)`,
     # `a.index`): pandas runs them, so their bodies stay pandas code (functions.learn_functions)
     pandas_functions: set[str] = field(default_factory=set)
+    # the module's frames each of the script's functions leaves to pandas code (functions.py)
+    pandas_globals: dict[str, set[str]] = field(default_factory=dict)
     statement_lines: tuple[int, int] = (0, 0)  # lines of the statement being rewritten
     # whether a node is glued to the word before it (`if(`, `not(`): its rewrite needs parentheses
     glued: Callable[[cst.CSTNode], bool] = lambda node: False

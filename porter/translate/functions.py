@@ -4,6 +4,8 @@ the calls (a small fixpoint over the module, run by the engine)."""
 from __future__ import annotations
 
 import ast
+import builtins
+import textwrap
 from dataclasses import replace
 from typing import Any
 
@@ -11,7 +13,7 @@ import libcst as cst
 
 from porter.analysis.mutations import changed_in_place
 from porter.emit.code import Code
-from porter.translate.evaluate import LocalFunction, Services
+from porter.translate.evaluate import Evaluator, LocalFunction, Services
 from porter.translate.values import (
     Column, Frame, Grouped, Opaque, PandasValue, Scalar, Value, fresh_token,
 )
@@ -338,3 +340,186 @@ def marked_as_applied(stmt: cst.FunctionDef) -> cst.FunctionDef:
         return stmt
     notes = [cst.EmptyLine(comment=cst.Comment(text)) for text in (APPLIED_NOTE, APPLIED_NOTE_REST)]
     return stmt.with_changes(leading_lines=[*stmt.leading_lines, *notes])
+
+
+# -- functions that read the module's frames ------------------------------------------------------
+
+_BUILTIN_NAMES = frozenset(dir(builtins))
+
+
+def module_names_of(definition: cst.FunctionDef, defs: dict[str, cst.FunctionDef],
+                    seen: frozenset[str] = frozenset()) -> tuple[frozenset[str], frozenset[str]]:
+    """(the module's names the function reads or changes, those it declares `global`), with
+    those of the script's functions it calls (a helper calling a helper reads what both do)."""
+    try:
+        tree = ast.parse(cst.Module([]).code_for_node(definition).strip())
+    except (SyntaxError, ValueError, RecursionError):
+        return frozenset(), frozenset()
+    function = tree.body[0] if tree.body else None
+    if not isinstance(function, (ast.FunctionDef, ast.AsyncFunctionDef)):
+        return frozenset(), frozenset()
+    declared = {n for node in ast.walk(function) if isinstance(node, ast.Global) for n in node.names}
+    local = {a.arg for node in ast.walk(function) if isinstance(node, ast.arguments)
+             for a in (*node.posonlyargs, *node.args, *node.kwonlyargs,
+                       *((node.vararg,) if node.vararg else ()),
+                       *((node.kwarg,) if node.kwarg else ()))}
+    local |= {node.id for node in ast.walk(function)
+              if isinstance(node, ast.Name) and isinstance(node.ctx, (ast.Store, ast.Del))}
+    local |= {node.name for node in ast.walk(function)
+              if isinstance(node, (ast.FunctionDef, ast.AsyncFunctionDef, ast.ClassDef))
+              and node is not function}
+    local -= declared
+    read = {node.id for node in ast.walk(function) if isinstance(node, ast.Name)
+            and isinstance(node.ctx, ast.Load) and node.id not in local
+            and node.id not in _BUILTIN_NAMES} | declared
+    names, globals_ = set(read), set(declared)
+    for callee in sorted(read & defs.keys() - seen - {definition.name.value}):
+        more, more_declared = module_names_of(defs[callee], defs, seen | {definition.name.value})
+        names |= more
+        globals_ |= more_declared
+    return frozenset(names), frozenset(globals_)
+
+
+def _holds_porter_value(value: Value | None) -> bool:
+    return isinstance(value, (Frame, Column, Grouped))
+
+
+def module_frames_in_body(definition: cst.FunctionDef, local: dict[str, Value],
+                          services: Services) -> Any:
+    """A function whose body reads frames of the module's (`def report(): print(len(df))`):
+    its body stays pandas code for them (those names are taken out of `local`), and each
+    statement that names the function hands them to pandas first (hand_over_module_frames).
+    A TODO site when it declares `global` a frame name it binds: the whole body stays as
+    written; None otherwise."""
+    names, declared = module_names_of(definition, services.function_defs)
+    params = {p.name.value for p in (*definition.params.posonly_params, *definition.params.params,
+                                     *definition.params.kwonly_params)}
+    changed = changed_in_place(definition)
+    left = services.pandas_globals[definition.name.value] = set()
+    for name in names - params:
+        value = local.get(name)
+        if name not in local:
+            left.add(name)  # bound later (or never): the body names it as written
+        if not (_holds_porter_value(value) or isinstance(value, PandasValue)):
+            continue
+        # a frame the module binds once and never changes, which the function only reads, is
+        # the same Polars frame at every call: the body is ported with it
+        if isinstance(value, PandasValue) or name in declared or name in changed \
+                or name in services.changed_in_place or _bindings(services, name) != 1:
+            local.pop(name, None)
+            left.add(name)
+    rebound = sorted(name for name in declared if _frame_like(definition, name))
+    if not rebound:
+        return None
+    from porter.model import SiteDraft
+    line, _ = services.position(definition.name)
+    return SiteDraft("function.module_frame", "handover", "todo", 0.0,
+                     f"{definition.name.value}() binds the module's frame "
+                     f"{', '.join(f'`{n}`' for n in rebound)} (global): it stays pandas code as "
+                     "written, and so does that frame after each call; return the frame instead "
+                     "to port it", line, line)
+
+
+def _frame_like(definition: cst.FunctionDef, name: str) -> bool:
+    """Whether the function uses the name it declares `global` as an object (name[...],
+    name.attr) or binds it to a call of a method (pd.read_csv(...), other.copy())."""
+    try:
+        tree = ast.parse(cst.Module([]).code_for_node(definition).strip())
+    except (SyntaxError, ValueError, RecursionError):
+        return True
+    for node in ast.walk(tree):
+        if isinstance(node, (ast.Subscript, ast.Attribute)) and isinstance(node.value, ast.Name) \
+                and node.value.id == name:
+            return True
+        if isinstance(node, ast.Assign) and any(isinstance(t, ast.Name) and t.id == name
+                                                for t in node.targets) \
+                and isinstance(node.value, ast.Call) and isinstance(node.value.func, ast.Attribute):
+            return True
+    return False
+
+
+def hand_over_module_frames(walker: Any, stmt: cst.CSTNode, env: dict[str, Value],
+                            after_change: Any) -> tuple[list[str], list[Any]]:
+    """Lines that hand to pandas, in their own names, the module's frames that the script's
+    functions named in `stmt` read or change (their bodies stay pandas code for them), and the
+    TODO site. A frame the function changes in place comes back to Polars later with what
+    pandas made of it; one it binds anew (`global df`) stays pandas."""
+    from porter.emit import code as emit
+    from porter.model import SiteDraft
+    from porter.translate import handover
+
+    defs = walker.services.function_defs
+    code = walker.services.code_for(stmt)
+    called = [n for n in dict.fromkeys(_names_in(code)) if n in defs and n not in env]
+    lines: list[str] = []
+    handed: list[str] = []
+    for function in called:
+        names, declared = module_names_of(defs[function], defs)
+        changed = changed_in_place(defs[function])
+        left = set().union(*(walker.services.pandas_globals.get(f, set())
+                             for f in {function, *(names & defs.keys())}))
+        for name in sorted(names & left):
+            value = env.get(name)
+            if not _holds_porter_value(value):
+                continue
+            # pandas code may read its row labels: after a filter or sort pandas makes it
+            Evaluator(env, walker.services).note_handed_over(value)
+            if isinstance(value, Frame):
+                walker.note_handed_over(name, value)
+                lines += walker.hand_over_expressions_of(name, env, stmt)
+            lines.append(f"{name} = {handover.to_pandas(value).text}")
+            frame = None if name in declared or not isinstance(value, Frame) else \
+                after_change(name, value, None, "setitem" if name in changed else "")
+            if frame is not None and name in changed:
+                frame = replace(frame, columns=None, dtypes=())
+            env[name] = PandasValue(emit.atom(name), frame=frame)
+            handed.append(f"`{name}` ({function}())")
+    if not lines:
+        return [], []
+    line, end_line = walker.services.position(stmt)
+    site = SiteDraft("function.module_frame", "handover", "todo", 0.0,
+                     f"the script's function reads or changes the module's frame "
+                     f"{', '.join(handed)}: its body stays pandas code, so the frame is handed "
+                     "to pandas first; pass the frame as a parameter to port it", line, end_line)
+    return lines, [site]
+
+
+def _names_in(code: str) -> list[str]:
+    try:
+        tree = ast.parse(code.strip())
+    except SyntaxError:
+        return []
+    return [node.id for node in ast.walk(tree) if isinstance(node, ast.Name)]
+
+
+def _bindings(services: Services, name: str) -> int:
+    """How many times the script binds `name` (in any scope); 2 when porter cannot read it."""
+    module = services.python_module
+    if module is None:
+        return 2
+    return sum(1 for node in ast.walk(module) if isinstance(node, ast.Name) and node.id == name
+               and isinstance(node.ctx, (ast.Store, ast.Del)))
+
+
+def handed_over_inside(definition: cst.FunctionDef, body: cst.CSTNode, local: dict[str, Value],
+                       services: Services) -> bool:
+    """Whether the ported body binds a module's frame the function only read (a hand-over to
+    pandas, `rates = rates.collect().to_pandas()`, which makes the name local to the function):
+    such frames are taken out of `local` (True), for the body to be ported again without them."""
+    try:
+        before = ast.parse(cst.Module([]).code_for_node(definition).strip())
+        after = ast.parse(textwrap.dedent(cst.Module([]).code_for_node(
+            definition.with_changes(body=body))).strip())
+    except (SyntaxError, ValueError, RecursionError):
+        return False
+    def stored(tree: ast.AST) -> set[str]:
+        return {n.id for n in ast.walk(tree) if isinstance(n, ast.Name) and isinstance(n.ctx, ast.Store)}
+    free, _ = module_names_of(definition, services.function_defs)
+    params = {p.name.value for p in (*definition.params.posonly_params, *definition.params.params,
+                                     *definition.params.kwonly_params)}
+    found = {n for n in (stored(after) - stored(before)) & (free - params)
+             if _holds_porter_value(local.get(n)) or isinstance(local.get(n), PandasValue)}
+    for name in found:
+        local.pop(name, None)
+    services.pandas_globals.setdefault(definition.name.value, set()).update(found)
+    return bool(found)
