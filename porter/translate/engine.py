@@ -530,9 +530,10 @@ class _Walker:
         reach = self.reached_through(aliases)
         stays = any(line > end for n in reach for line in self.services.name_lines.get(n, ()))
         lines = self.hand_over_shared(names, env, stays)
+        through = self.changed_through(aliases, start - 1) or names
         site = SiteDraft("frame.changed_in_a_loop", "handover", "todo", 0.0,
                          f"the loop changes {', '.join(f'`{n}`' for n in names)} in place through "
-                         f"{', '.join(f'`{n}`' for n in aliases)}: each is handed to pandas first"
+                         f"{', '.join(f'`{n}`' for n in through)}: each is handed to pandas first"
                          + (" and stays there (a loop variable is read after the loop)" if stays else ""),
                          start, end)
         return lines, site
@@ -555,6 +556,11 @@ class _Walker:
                                   for n in self.reached_through(aliases)):
             return frames
         return [n for n in frames if self.changed_since(n, after, own=True)]
+
+    def changed_through(self, aliases: list[str], after: int) -> list[str]:
+        """The names holding what `aliases` hold that a change in place goes through."""
+        return sorted(n for n in self.reached_through(aliases)
+                      if self.changed_since(n, after, own=False))
 
     def changed_since(self, name: str, after: int, own: bool) -> bool:
         """Whether the script changes `name`'s object in place after line `after`, or anywhere in
@@ -638,13 +644,21 @@ class _Walker:
         names += passed
         if not names:
             return [], []
-        through = [f"`{n}`" for n in aliases] + [f"`{f}()`" for f in called]
+        shown = ", ".join(f"`{n}`" for n in names)
+        holders = ", ".join(f"`{n}`" for n in aliases)
+        via = self.changed_through(aliases, end)
+        if via:
+            why = f"{shown} can also be reached through {holders}, and pandas sees a change " \
+                  f"made in place through {', '.join(f'`{n}`' for n in via)} through every name"
+        elif stays:
+            why = f"{holders} holds the objects {shown}, changed in place later, and pandas' " \
+                  f"{holders} sees that change"
+        else:
+            why = f"{shown} are given to {', '.join(f'`{f}()`' for f in called)}, which " \
+                  "changes things in place, and pandas changes the caller's frames"
         site = SiteDraft("frame.shared", "handover", "todo", 0.0,
-                         f"{', '.join(f'`{n}`' for n in names)} can also be reached through "
-                         f"{', '.join(through)}, and pandas sees a change in place through "
-                         "either name: " + ("each is handed to pandas and stays there"
-                                            if stays else "each is handed to pandas first"),
-                         start, end)
+                         why + (": each is handed to pandas and stays there" if stays
+                                else ": each is handed to pandas first"), start, end)
         return lines, [site]
 
     def iterrows_appends(self, stmt: cst.For, env: dict[str, Value], indent: str) -> list[Any] | None:
