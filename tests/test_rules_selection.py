@@ -547,3 +547,10 @@ def test_for_loop_over_a_frame_iterates_its_column_names() -> None:
                           "totals = {}\nfor c in df[df['n'] > 2]:\n"
                           "    totals[c] = int(df[c].count())\n", "result", "totals")
     assert "TODO" not in result.converted_text
+
+
+def test_names_chosen_by_a_mask_of_the_names_select_those_columns() -> None:
+    # pandas' Index.str.startswith makes a boolean array, which indexes pandas' Index of the
+    # names (porter's names are a Python list, which it cannot index)
+    differential(FRAME + 'result = df[df.columns[df.columns.str.startswith("g")]]\n'
+                 'other = df[df.columns[df.columns.str.contains("n")]]\n', "result", "other")

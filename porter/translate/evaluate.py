@@ -723,6 +723,18 @@ class Evaluator:
             if isinstance(key, Column) and key.element:
                 call = PandasCall(key, "lookup", (receiver,), node=node)
                 return self.dispatch("element.lookup", call, node)
+        if isinstance(receiver, Scalar) and receiver.pytype == "list[str]" and receiver.of is not None \
+                and len(node.slice) == 1 and isinstance(node.slice[0].slice, cst.Index):
+            key = self.eval(node.slice[0].slice.value)
+            if isinstance(key, PandasValue):
+                # df.columns[<a mask pandas computed>]: porter's names are a list, which a
+                # boolean array cannot index; pandas' Index of the names can
+                line, end_line = self.services.position(node)
+                site = SiteDraft("frame.columns.index", "todo", "todo", 0.0,
+                                 "the column names selected by a mask pandas computed: pandas' "
+                                 "Index of the names", line, end_line)
+                code = handover.to_pandas(receiver.of).attr("columns").index(key.code)
+                return PandasValue(code, sites=receiver.sites + key.sites + (site,))
         if not isinstance(receiver, (Frame, Column, Grouped, Indexer, Accessor, Parts, Resampled,
                                      Indexed)):
             return self.generic(node)
