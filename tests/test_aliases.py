@@ -125,3 +125,14 @@ jan.to_csv("j.csv", index=False)
 """, tmp_path, MONTHS)
     assert "frame.shared" not in result.converted_text
     assert "frame.changed_in_a_loop" not in result.converted_text
+
+
+def test_a_frame_on_pandas_already_stays_there_while_a_list_holds_it(tmp_path):
+    # `jan` went to pandas for insert() and would come back to Polars at the next statement
+    # porter rewrites: the list would keep the old object without the new column
+    same_text(READ + """
+jan.insert(0, "n", 1)
+frames = [jan, feb]
+jan["month"] = "jan"
+pd.concat(frames, ignore_index=True).to_csv("o.csv", index=False)
+""", tmp_path, MONTHS)

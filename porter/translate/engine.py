@@ -548,8 +548,10 @@ class _Walker:
         them (`aliases`, or a name bound from those: `for k, d in frames.items()`) or the
         statement gives them to a function that changes things in place; otherwise each that
         is changed in place itself after the statement (a list built before `jan["c"] = ...`).
-        `after` is the last line before those changes."""
-        frames = [n for n in dict.fromkeys(held) if isinstance(env.get(n), Frame)]
+        `after` is the last line before those changes. A frame pandas holds already, waiting
+        to come back to Polars, counts too: it must not come back while another name holds it."""
+        frames = [n for n in dict.fromkeys(held) if isinstance(env.get(n), Frame)
+                  or isinstance(env.get(n), PandasValue) and env[n].frame is not None]  # type: ignore[union-attr]
         if not frames:
             return []
         if changed_by_call or any(self.changed_since(n, after, own=False)
@@ -601,6 +603,9 @@ class _Walker:
         lines = []
         for name in names:
             value = env[name]
+            if isinstance(value, PandasValue):  # on pandas already: it stays there
+                env[name] = value if not stays else PandasValue(emit.atom(name))
+                continue
             assert isinstance(value, Frame)
             self.note_handed_over(name, value)
             lines += self.hand_over_expressions_of(name, env, None)
