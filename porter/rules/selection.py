@@ -107,12 +107,25 @@ def _bound_names(target: ast.expr) -> list[str]:
     return []
 
 
+# the last module read by name_kind, with what it found of each name (one walk per script)
+_KINDS: list[tuple[ast.Module, dict[str, str | None]]] = []
+
+
 def name_kind(module: ast.Module | None, name: str) -> str | None:
     """What the script binds `name` to anywhere (any scope): "list" when every binding gives a
     list of names (or the list is changed with append / extend / remove), "mixed" when some do
     and others may not, None when none does (one name, or a value porter cannot see)."""
     if module is None:
         return None
+    if not _KINDS or _KINDS[0][0] is not module:
+        _KINDS[:] = [(module, {})]
+    known = _KINDS[0][1]
+    if name not in known:
+        known[name] = _name_kind(module, name)
+    return known[name]
+
+
+def _name_kind(module: ast.Module, name: str) -> str | None:
     lists = others = 0
     for node in ast.walk(module):
         values: list[ast.expr | None] = []

@@ -347,10 +347,26 @@ def marked_as_applied(stmt: cst.FunctionDef) -> cst.FunctionDef:
 _BUILTIN_NAMES = frozenset(dir(builtins))
 
 
+# what module_names_of found, by definition (kept with it, so that its id is not reused)
+_NAMES: dict[int, tuple[cst.FunctionDef, tuple[frozenset[str], frozenset[str]]]] = {}
+
+
 def module_names_of(definition: cst.FunctionDef, defs: dict[str, cst.FunctionDef],
                     seen: frozenset[str] = frozenset()) -> tuple[frozenset[str], frozenset[str]]:
     """(the module's names the function reads or changes, those it declares `global`), with
     those of the script's functions it calls (a helper calling a helper reads what both do)."""
+    if seen:
+        return _module_names_of(definition, defs, seen)
+    held = _NAMES.get(id(definition))
+    if held is None or held[0] is not definition:
+        if len(_NAMES) > 1000:
+            _NAMES.clear()
+        held = _NAMES[id(definition)] = (definition, _module_names_of(definition, defs, seen))
+    return held[1]
+
+
+def _module_names_of(definition: cst.FunctionDef, defs: dict[str, cst.FunctionDef],
+                     seen: frozenset[str]) -> tuple[frozenset[str], frozenset[str]]:
     try:
         tree = ast.parse(cst.Module([]).code_for_node(definition).strip())
     except (SyntaxError, ValueError, RecursionError):
