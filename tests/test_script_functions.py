@@ -275,8 +275,8 @@ def test_step_functions_that_bind_a_global_frame(tmp_path):
     assert "TODO(porter): function.module_frame" in result.converted_text
 
 
-def test_a_module_frame_bound_once_and_only_read_keeps_the_helper_ported(tmp_path):
-    result = same_text("""
+def test_a_module_frame_read_by_a_helper_given_a_frame(tmp_path):
+    same_text("""
         import pandas as pd
         rates = pd.read_csv("r.csv")
         def with_rates(frame):
@@ -284,4 +284,24 @@ def test_a_module_frame_bound_once_and_only_read_keeps_the_helper_ported(tmp_pat
         df = with_rates(pd.read_csv("t.csv"))
         df.to_csv("o.csv", index=False)
         """, tmp_path, SALES)
-    assert "function.module_frame" not in result.converted_text
+
+
+def test_helpers_reading_one_module_frame_defined_before_and_after_them(tmp_path):
+    # report() is defined before df, total() after it: df goes to pandas before main() for
+    # report, and total must not meet it as a Polars frame
+    same_text("""
+        import pandas as pd
+        def report(label):
+            print(label, len(df), round(df["v"].sum(), 2))
+        df = pd.read_csv("t.csv")
+        def main():
+            report("start")
+            print(df[df["v"] > 0].shape)
+        def total(frame):
+            return frame["v"].sum() + len(df)
+        if __name__ == "__main__":
+            main()
+            print(total(df))
+            for i in range(2):
+                report(f"loop {i}")
+        """, tmp_path, SALES)

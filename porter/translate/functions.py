@@ -410,7 +410,6 @@ def module_frames_in_body(definition: cst.FunctionDef, local: dict[str, Value],
     names, declared = module_names_of(definition, services.function_defs)
     params = {p.name.value for p in (*definition.params.posonly_params, *definition.params.params,
                                      *definition.params.kwonly_params)}
-    changed = changed_in_place(definition)
     left = services.pandas_globals[definition.name.value] = set()
     for name in names - params:
         value = local.get(name)
@@ -418,12 +417,10 @@ def module_frames_in_body(definition: cst.FunctionDef, local: dict[str, Value],
             left.add(name)  # bound later (or never): the body names it as written
         if not (_holds_porter_value(value) or isinstance(value, PandasValue)):
             continue
-        # a frame the module binds once and never changes, which the function only reads, is
-        # the same Polars frame at every call: the body is ported with it
-        if isinstance(value, PandasValue) or name in declared or name in changed \
-                or name in services.changed_in_place or _bindings(services, name) != 1:
-            local.pop(name, None)
-            left.add(name)
+        # even a frame the module binds once may be handed to pandas in its name before a call
+        # (by another helper, a TODO, an `if` branch): the body cannot count on a Polars frame
+        local.pop(name, None)
+        left.add(name)
     rebound = sorted(name for name in declared if _frame_like(definition, name))
     if not rebound:
         return None
@@ -506,15 +503,6 @@ def _names_in(code: str) -> list[str]:
     except SyntaxError:
         return []
     return [node.id for node in ast.walk(tree) if isinstance(node, ast.Name)]
-
-
-def _bindings(services: Services, name: str) -> int:
-    """How many times the script binds `name` (in any scope); 2 when porter cannot read it."""
-    module = services.python_module
-    if module is None:
-        return 2
-    return sum(1 for node in ast.walk(module) if isinstance(node, ast.Name) and node.id == name
-               and isinstance(node.ctx, (ast.Store, ast.Del)))
 
 
 def handed_over_inside(definition: cst.FunctionDef, body: cst.CSTNode, local: dict[str, Value],
