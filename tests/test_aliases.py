@@ -136,3 +136,17 @@ frames = [jan, feb]
 jan["month"] = "jan"
 pd.concat(frames, ignore_index=True).to_csv("o.csv", index=False)
 """, tmp_path, MONTHS)
+
+
+def test_frames_unpacked_into_two_names_are_those_frames(tmp_path):
+    # `a, b = jan, feb` left both names holding LazyFrames that pandas code then read (crash);
+    # a swap reads the names it binds and stays as written
+    result = same_text(READ + """
+a, b = jan, feb
+print(a["v"].sum(), len(b))
+x, y = 1, "k"
+x, y = y, x
+print(b[b["v"] > 3].shape, x, y)
+a.to_csv("o.csv", index=False)
+""", tmp_path, MONTHS)
+    assert "x, y = y, x" in result.converted_text

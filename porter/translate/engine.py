@@ -1084,6 +1084,10 @@ class _Walker:
                 result = self.set_attr(target, stmt.value, env, evaluator, indent)
                 if result is not None:
                     return result
+            if isinstance(target, (cst.Tuple, cst.List)) and isinstance(stmt, cst.Assign):
+                result = self.unpack(target, stmt.value, env, evaluator, indent)
+                if result is not None:
+                    return result
         value = evaluator.eval(stmt.value)
         if isinstance(value, (Frame, Column)) and not all(isinstance(t, cst.Name) for t in targets):
             # stored into an object porter does not model (a frame pandas holds, a dict, an
@@ -1103,6 +1107,31 @@ class _Walker:
             return None, list(value.sites)
         lhs = "".join(f"{self.services.code_for(t)} = " for t in targets)
         return emit.layout_chain(value.code, indent, lhs), list(value.sites)
+
+    def unpack(self, target: cst.Tuple | cst.List, node: cst.BaseExpression, env: dict[str, Value],
+               evaluator: Evaluator, indent: str) -> tuple[str | None, list[SiteDraft]] | None:
+        """`a, b = jan, feb` binds each name as `a = jan` would (the names were left holding
+        nothing porter knew, and pandas code on them ran on LazyFrames); None when the
+        statement is not that (a starred or nested name, another length, a swap that reads
+        the names it binds) or binds no pandas value."""
+        names = [e.value.value if isinstance(e.value, cst.Name) and not isinstance(e, cst.StarredElement)
+                 else None for e in target.elements]
+        if not isinstance(node, (cst.Tuple, cst.List)) or None in names \
+                or len(node.elements) != len(names) or len(set(names)) != len(names) \
+                or any(isinstance(e, cst.StarredElement) for e in node.elements) \
+                or set(names) & set(_names_read(self.services.code_for(node))):
+            return None
+        values = [evaluator.eval(e.value) for e in node.elements]
+        if not any(is_pandas(v) for v in values):
+            return None
+        texts: list[str] = []
+        sites: list[SiteDraft] = []
+        for name, value in zip(names, values):
+            text, new_sites = self.bind(name, value, env, indent)  # type: ignore[arg-type]
+            sites += new_sites
+            if text:  # nothing to write for a pending groupby bound later
+                texts.append(text)
+        return "\n".join(texts), sites
 
     def aug_assign(self, stmt: cst.AugAssign, env: dict[str, Value], evaluator: Evaluator,
                    indent: str) -> tuple[str | None, list[SiteDraft]]:
