@@ -125,6 +125,7 @@ class Services:
     pandas_functions: set[str] = field(default_factory=set)
     # the module's frames each of the script's functions leaves to pandas code (functions.py)
     pandas_globals: dict[str, set[str]] = field(default_factory=dict)
+    frames_kept: dict[str, set[str]] = field(default_factory=dict)  # those its body ports
     statement_lines: tuple[int, int] = (0, 0)  # lines of the statement being rewritten
     # whether a node is glued to the word before it (`if(`, `not(`): its rewrite needs parentheses
     glued: Callable[[cst.CSTNode], bool] = lambda node: False

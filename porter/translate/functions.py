@@ -410,15 +410,22 @@ def module_frames_in_body(definition: cst.FunctionDef, local: dict[str, Value],
     names, declared = module_names_of(definition, services.function_defs)
     params = {p.name.value for p in (*definition.params.posonly_params, *definition.params.params,
                                      *definition.params.kwonly_params)}
+    changed = changed_in_place(definition)
     left = services.pandas_globals[definition.name.value] = set()
+    kept = services.frames_kept[definition.name.value] = set()
     for name in names - params:
         value = local.get(name)
         if name not in local:
             left.add(name)  # bound later (or never): the body names it as written
         if not (_holds_porter_value(value) or isinstance(value, PandasValue)):
             continue
-        # even a frame the module binds once may be handed to pandas in its name before a call
-        # (by another helper, a TODO, an `if` branch): the body cannot count on a Polars frame
+        # a frame the module binds once and never changes, which the function only reads, is
+        # the same frame at every call: the body is ported with it (a call where it was handed
+        # to pandas in its name hands it back first, hand_over_module_frames)
+        if isinstance(value, Frame) and name not in declared and name not in changed \
+                and name not in services.changed_in_place and _bindings(services, name) == 1:
+            kept.add(name)
+            continue
         local.pop(name, None)
         left.add(name)
     rebound = sorted(name for name in declared if _frame_like(definition, name))
@@ -487,8 +494,18 @@ def hand_over_module_frames(walker: Any, stmt: cst.CSTNode, env: dict[str, Value
                 frame = replace(frame, columns=None, dtypes=())
             env[name] = PandasValue(emit.atom(name), frame=frame)
             handed.append(f"`{name}` ({function}())")
-    if not lines:
-        return [], []
+        for name in sorted(names - left - declared):
+            # the body was ported with this frame: where it was handed to pandas in its name
+            # (for another helper, an `if` branch), it comes back to Polars first
+            value = env.get(name)
+            if isinstance(value, PandasValue) and value.frame is not None \
+                    and any(name in walker.services.frames_kept.get(f, ())
+                            for f in {function, *(names & defs.keys())}):
+                from porter.translate.engine import _from_pandas
+                lines.append(f"{name} = {_from_pandas(name, value.frame).text}")
+                env[name] = replace(value.frame, code=emit.atom(name), sites=())
+    if not handed:
+        return lines, []
     line, end_line = walker.services.position(stmt)
     site = SiteDraft("function.module_frame", "handover", "todo", 0.0,
                      f"the script's function reads or changes the module's frame "
@@ -503,6 +520,15 @@ def _names_in(code: str) -> list[str]:
     except SyntaxError:
         return []
     return [node.id for node in ast.walk(tree) if isinstance(node, ast.Name)]
+
+
+def _bindings(services: Services, name: str) -> int:
+    """How many times the script binds `name` (in any scope); 2 when porter cannot read it."""
+    module = services.python_module
+    if module is None:
+        return 2
+    return sum(1 for node in ast.walk(module) if isinstance(node, ast.Name) and node.id == name
+               and isinstance(node.ctx, (ast.Store, ast.Del)))
 
 
 def handed_over_inside(definition: cst.FunctionDef, body: cst.CSTNode, local: dict[str, Value],
@@ -525,5 +551,6 @@ def handed_over_inside(definition: cst.FunctionDef, body: cst.CSTNode, local: di
              if _holds_porter_value(local.get(n)) or isinstance(local.get(n), PandasValue)}
     for name in found:
         local.pop(name, None)
+        services.frames_kept.get(definition.name.value, set()).discard(name)
     services.pandas_globals.setdefault(definition.name.value, set()).update(found)
     return bool(found)

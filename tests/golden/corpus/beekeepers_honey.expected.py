@@ -307,14 +307,13 @@ def main():
         .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
         .sort("apiary")
     )
-    # TODO(porter): frame.merge: the right side is not a frame porter tracks: make it a LazyFrame
-    #   (pl.from_pandas(...).lazy()) where it is built
-    per_apiary = per_apiary.collect().to_pandas().merge(
+    per_apiary = per_apiary.join(
         APIARIES,
         on="apiary",
         how="left",
+        nulls_equal=True,
+        maintain_order="left_right",
     )
-    per_apiary = pl.from_pandas(per_apiary).lazy()
     per_apiary = (
         per_apiary
         .with_columns(moisture_pct=pl.col("moisture_pct").round(2))
@@ -389,11 +388,4 @@ def main():
 
 
 if __name__ == "__main__":
-    APIARIES = APIARIES.collect().to_pandas()
-    # TODO(porter): function.module_frame: the script's function reads or changes the module's frame
-    #   `APIARIES` (main()): its body stays pandas code, so the frame is handed to pandas first; pass
-    #   the frame as a parameter to port it
     main()
-else:
-    # handed to pandas, as the other branch does
-    APIARIES = APIARIES.collect().to_pandas()
