@@ -463,7 +463,8 @@ def hand_over_module_frames(walker: Any, stmt: cst.CSTNode, env: dict[str, Value
     """Lines that hand to pandas, in their own names, the module's frames that the script's
     functions named in `stmt` read or change (their bodies stay pandas code for them), and the
     TODO site. A frame the function changes in place comes back to Polars later with what
-    pandas made of it; one it binds anew (`global df`) stays pandas."""
+    pandas made of it; one it binds anew (`global df`) stays pandas. A frame a body was ported
+    with (frames_kept) that pandas holds in its name here comes back to Polars first."""
     from porter.emit import code as emit
     from porter.model import SiteDraft
     from porter.translate import handover
@@ -473,6 +474,8 @@ def hand_over_module_frames(walker: Any, stmt: cst.CSTNode, env: dict[str, Value
     called = [n for n in dict.fromkeys(_names_in(code)) if n in defs and n not in env]
     lines: list[str] = []
     handed: list[str] = []
+    unported: list[str] = []
+    sites: list[Any] = []
     for function in called:
         names, declared = module_names_of(defs[function], defs)
         changed = changed_in_place(defs[function])
@@ -498,20 +501,29 @@ def hand_over_module_frames(walker: Any, stmt: cst.CSTNode, env: dict[str, Value
             # the body was ported with this frame: where it was handed to pandas in its name
             # (for another helper, an `if` branch), it comes back to Polars first
             value = env.get(name)
-            if isinstance(value, PandasValue) and value.frame is not None \
-                    and any(name in walker.services.frames_kept.get(f, ())
-                            for f in {function, *(names & defs.keys())}):
-                from porter.translate.engine import _from_pandas
-                lines.append(f"{name} = {_from_pandas(name, value.frame).text}")
-                env[name] = replace(value.frame, code=emit.atom(name), sites=())
-    if not handed:
-        return lines, []
-    line, end_line = walker.services.position(stmt)
-    site = SiteDraft("function.module_frame", "handover", "todo", 0.0,
-                     f"the script's function reads or changes the module's frame "
-                     f"{', '.join(handed)}: its body stays pandas code, so the frame is handed "
-                     "to pandas first; pass the frame as a parameter to port it", line, end_line)
-    return lines, [site]
+            if not (isinstance(value, PandasValue) and any(
+                    name in walker.services.frames_kept.get(f, ())
+                    for f in {function, *(names & defs.keys())})):
+                continue
+            if value.frame is None:  # pandas made it in a way Polars cannot hold (labels)
+                unported.append(f"`{name}` ({function}())")
+                continue
+            from porter.translate.engine import _from_pandas
+            lines.append(f"{name} = {_from_pandas(name, value.frame).text}")
+            env[name] = replace(value.frame, code=emit.atom(name), sites=())
+    line, end_line = walker.services.position(stmt) if unported or handed else (0, 0)
+    if unported:
+        sites.append(SiteDraft("function.module_frame", "todo", "todo", 0.0,
+                               f"the script's function was ported for the Polars frame "
+                               f"{', '.join(unported)}, which pandas holds here: pass the frame "
+                               "as a parameter", line, end_line))
+    if handed:
+        sites.append(SiteDraft("function.module_frame", "handover", "todo", 0.0,
+                               f"the script's function reads or changes the module's frame "
+                               f"{', '.join(handed)}: its body stays pandas code, so the frame is "
+                               "handed to pandas first; pass the frame as a parameter to port it",
+                               line, end_line))
+    return lines, sites
 
 
 def _names_in(code: str) -> list[str]:
