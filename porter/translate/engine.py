@@ -892,7 +892,7 @@ class _Walker:
         handed, handed_sites = [*moved, *handed], [*moved_sites, *handed_sites]
         text, sites = self._small(stmt, env, indent)
         if not handed:
-            return text, sites
+            return text, [*handed_sites, *sites]  # a TODO without lines to add
         text = text if text is not None else self.services.code_for(stmt).strip()
         return "\n".join([*handed, text]), [*handed_sites, *sites]
 
