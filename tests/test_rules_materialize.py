@@ -167,3 +167,13 @@ def test_series_to_dict_matches_pandas(before: str) -> None:
 def test_series_to_dict_after_a_filter_stays_todo() -> None:
     check_todo('import pandas as pd\ndf = pd.DataFrame({"n": [1, 2, 3]})\n'
                'r = df[df["n"] > 1]["n"].to_dict()\n', "series.to_dict")
+
+
+def test_tolist_of_true_false_with_a_blank_gives_nan(tmp_path) -> None:
+    # pandas reads True/False with a blank as an object column: its missing value is nan
+    from support import same_text
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("t.csv")
+        print(df["ok"].tolist(), df["full"].tolist())
+        """, tmp_path, {"t.csv": "id,ok,full\n1,True,True\n2,,False\n3,False,True\n"})

@@ -23,7 +23,8 @@ def series_values(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: missing numbers become nan (Polars' to_list would give None), and integer columns
     with missing values become float, as in pandas; a text column's values are pandas' own
-    (to_pandas()): a missing text is nan there (true, and 'nan' as text), None in Polars.
+    (to_pandas()): a missing text is nan there (true, and 'nan' as text), None in Polars;
+    tolist() of True/False with a missing value gives nan for it (pandas' object column).
     Caveats: a column of unknown type gives None for a missing text where pandas gives nan.
     """
     column = call.receiver
@@ -35,8 +36,9 @@ def series_values(call: PandasCall, ctx: RuleContext) -> Value:
         if call.name in ("tolist", "to_list"):
             return Scalar(code.method("tolist"), pytype="list")
         return Scalar(code.method("to_numpy"), pytype="array")
-    if column.dtype is not None and column.dtype.startswith("list[") \
-            and call.name in ("tolist", "to_list"):
+    if (column.dtype == "bool" and not column.null_is_false or column.dtype is not None
+            and column.dtype.startswith("list[")) and call.name in ("tolist", "to_list"):
+        # True/False with a missing value is an object column in pandas: its nan, not None
         # lists as lists (to_numpy would give numpy arrays), a missing one nan as in pandas
         return Scalar(Code(f"[float(\"nan\") if v is None else v for v in "
                            f"{_series(column).method('to_list').text}]"), pytype="list")
