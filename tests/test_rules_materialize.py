@@ -177,3 +177,29 @@ def test_tolist_of_true_false_with_a_blank_gives_nan(tmp_path) -> None:
         df = pd.read_csv("t.csv")
         print(df["ok"].tolist(), df["full"].tolist())
         """, tmp_path, {"t.csv": "id,ok,full\n1,True,True\n2,,False\n3,False,True\n"})
+
+
+# s.iloc[i]: the value at a position, whatever the labels
+ILOC = [
+    pytest.param('r = (df["qty"].iloc[0], df["qty"].iloc[-1], df["n"].iloc[2])', id="first and last"),
+    pytest.param('r = df[df["n"] > 2]["qty"].iloc[0]', id="after a filter"),
+    pytest.param('r = df.sort_values("n", ascending=False)["t"].iloc[0]', id="after a sort"),
+    pytest.param('r = df["qty"].iloc[1]', id="a missing number is nan"),
+    pytest.param('r = df.groupby("shop")["n"].sum().iloc[-1]', id="of a groupby result"),
+    pytest.param('r = (df["n"] > 2).iloc[0]', id="True/False"),
+]
+
+
+@pytest.mark.parametrize("before", ILOC)
+def test_series_iloc_matches_pandas(before: str) -> None:
+    frame = ('import numpy as np\nimport pandas as pd\n'
+             'df = pd.DataFrame({"shop": ["b", "a", None, "b", "é"], "qty": [1.5, np.nan, 3.0, 4.0, 2.0],\n'
+             '                   "n": [1, 2, 3, 4, 5], "t": ["x", None, "z", "y", "w"]})\n')
+    result = differential(frame + before + "\n", "r")
+    assert "TODO" not in result.converted_text, result.converted_text
+    assert ".get(" in result.converted_text
+
+
+def test_series_iloc_slice_stays_todo() -> None:
+    check_todo('import pandas as pd\ndf = pd.DataFrame({"n": [1, 2, 3]})\nr = df["n"].iloc[1:]\n',
+               "series.iloc")

@@ -5,11 +5,13 @@ These need the data, so they are where porter writes a collect.
 
 from __future__ import annotations
 
+from dataclasses import replace
+
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import PandasCall, RuleContext
-from porter.translate.values import Column, Frame, Scalar, Value
+from porter.translate.values import Column, Frame, Opaque, Scalar, Value
 
 
 def _series(column: Column) -> Code:
@@ -104,3 +106,29 @@ def series_to_dict(call: PandasCall, ctx: RuleContext) -> Value:
                        "columns and the values and build the dict with zip")
     ctx.handover = True  # pandas makes the dict: its own keys and values
     return Scalar(code, pytype="dict")
+
+
+@rule("series.iloc")
+def series_position(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.iloc[i] -> the value at position i (pl.col(c).get(i)), as pandas gives it: a numpy
+    number, text, True/False, a datetime; a negative position counts from the end in both, and
+    a position past the end raises in both.
+
+    Caveats: a missing text is None here, nan in pandas (0.95); slices, lists of positions and
+    a position computed at run time are TODOs.
+    """
+    from porter.rules.groupby import scalar_of  # groupby builds on the values taken here
+    column = call.receiver
+    assert isinstance(column, Column)
+    key = call.args[0] if len(call.args) == 1 else None
+    if not (isinstance(key, Opaque) and isinstance(key.const, int) and not isinstance(key.const, bool)):
+        raise ctx.todo("a position other than one whole number written in the script (slices "
+                       "are head / tail / slice of the frame)")
+    if column.dtype not in ("int", "float", "str", "bool", "datetime") or column.element:
+        raise ctx.todo("a value of a column whose type porter does not know")
+    value = column.code.method("fill_null", False) if column.null_is_false else column.code
+    expr = value.method("get", key.const)
+    if column.dtype == "str":
+        ctx.lower("a missing text is None here, nan in pandas", 0.95)
+    scalar = scalar_of(column, expr, column.dtype if column.dtype in ("int", "float") else None)
+    return replace(scalar, pytype="datetime") if column.dtype == "datetime" else scalar

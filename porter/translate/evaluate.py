@@ -321,6 +321,9 @@ class Evaluator:
             return self.dispatch("frame.getattr", PandasCall(receiver, name, node=node), node)
         if isinstance(receiver, Column) and receiver.element:
             return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
+        if isinstance(receiver, Column) and name == "iloc":
+            return Indexer(Code(self.source(node)), frame=receiver.frame, kind=name,
+                           column=receiver, sites=receiver.sites)
         if isinstance(receiver, Column):
             if name in ("str", "dt"):
                 return Accessor(Code(self.source(node)), column=receiver, kind=name,
@@ -746,6 +749,9 @@ class Evaluator:
             else:
                 keys.append(self.eval_slice(element.slice))
         key_value: Value = keys[0] if len(keys) == 1 else _TupleKey(Code(""), items=tuple(keys))
+        if isinstance(receiver, Indexer) and receiver.column is not None:
+            call = PandasCall(receiver.column, receiver.kind, tuple(keys), node=node)
+            return self.dispatch(f"series.{receiver.kind}", call, node)
         if isinstance(receiver, Indexer):
             call = PandasCall(receiver.frame, receiver.kind, tuple(keys), node=node)
             return self.dispatch(f"frame.{receiver.kind}", call, node)
@@ -1281,7 +1287,7 @@ def _prefix(value: Value) -> str:
     if isinstance(value, Accessor):
         return f"series.{value.kind}"
     if isinstance(value, Indexer):
-        return f"frame.{value.kind}"
+        return f"{'series' if value.column is not None else 'frame'}.{value.kind}"
     if isinstance(value, Scalar) and value.pytype == "names.str":
         return "frame.columns.str"
     return "value"

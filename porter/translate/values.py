@@ -192,10 +192,11 @@ class Accessor(Value):
 
 @dataclass(frozen=True)
 class Indexer(Value):
-    """`df.loc` / `df.iloc`: waiting for its subscript."""
+    """`df.loc` / `df.iloc` (or a Series' `s.iloc`, `column` set): waiting for its subscript."""
 
     frame: Frame = field(kw_only=True)
     kind: str = field(kw_only=True)
+    column: "Column | None" = field(default=None, kw_only=True)
 
 
 @dataclass(frozen=True)
