@@ -270,6 +270,10 @@ def _group_of(grouped: Grouped) -> Frame:
                    labels_intact=False, sites=(), binding=None)
 
 
+# a branch of pl.when giving a float written in the script (.otherwise(0.5), .then(pl.lit(1.0)))
+FLOAT_BRANCH = r"\.(then|otherwise)\((pl\.lit\()?(-?[0-9]+\.[0-9]*|float)"
+
+
 def group_function(call: PandasCall, grouped: Grouped, name: str, function: Opaque,
                    ctx: RuleContext) -> tuple[Code, str | None]:
     """agg(f) on the group's column `name`: f's body evaluated once with its parameter
@@ -304,7 +308,7 @@ def group_function(call: PandasCall, grouped: Grouped, name: str, function: Opaq
     if GROUP_FRAME in expr.text or (isinstance(result, Scalar) and result.agg is not None
                                     and result.agg.refs - {name}):
         raise Unsupported("the function reads the group as a frame (a collected value, a filter)")
-    if _has_branches(body) and re.search(r"\.(then|otherwise)\((pl\.lit\()?(-?[0-9]+\.[0-9]*|float)", expr.text):
+    if _has_branches(body) and re.search(FLOAT_BRANCH, expr.text):
         # pandas makes the result from each group's Python value: int64 when no group takes
         # the float branch; Polars' branches share one type
         ctx.lower("pandas' result is int64 when no group takes a float branch of the function "
