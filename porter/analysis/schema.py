@@ -129,8 +129,10 @@ class SchemaReader:
         try:
             if reader == "csv":
                 schema = pl.scan_csv(file, **scan_kwargs(options)).collect_schema()
+                blank_lines, empty_rows = _blank_lines(file, scan_kwargs(options))
                 schema, padded, padded_ints = _text_read_as_numbers(file, schema, options)
-                schema, missing_ints = _missing_ints_as_floats(file, schema, options)
+                schema, missing_ints = _missing_ints_as_floats(
+                    file, schema, options, skip_blank=bool(blank_lines) and not empty_rows)
                 schema, wide = _unsigned_ints(file, schema, options)
             elif reader == "parquet":
                 schema = pl.scan_parquet(file).collect_schema()
@@ -147,7 +149,7 @@ class SchemaReader:
                     found.polars[name] = "pl.String"
             if padded:
                 found.padded = {name: polars_code(dtype) for name, dtype in padded.items()}  # type: ignore[misc]
-            found.blank_lines, found.empty_rows = _blank_lines(file, scan_kwargs(options))
+            found.blank_lines, found.empty_rows = blank_lines, empty_rows
             found.first_texts = _first_texts(file, schema, options)
             found.missing_ints = frozenset(missing_ints | padded_ints)
             found.no_rows = _no_rows(file, options)
@@ -244,7 +246,8 @@ def _no_rows(file: Path, options: dict[str, Any]) -> bool:
     return pl.scan_csv(file, **scan_kwargs(options)).select(pl.len()).collect().item() == 0
 
 
-def _missing_ints_as_floats(file: Path, schema: Any, options: dict[str, Any]) -> tuple[dict[str, Any], set[str]]:
+def _missing_ints_as_floats(file: Path, schema: Any, options: dict[str, Any], *,
+                            skip_blank: bool = False) -> tuple[dict[str, Any], set[str]]:
     """The schema with each inferred integer column that has a missing value read as Float64,
     as pandas reads it (pandas has no missing integer in a default read: 33 becomes 33.0), and
     the names of those columns."""
@@ -254,8 +257,7 @@ def _missing_ints_as_floats(file: Path, schema: Any, options: dict[str, Any]) ->
     if not ints or file.stat().st_size > SAMPLE_SCAN_LIMIT:
         return found, set()
     frame = pl.scan_csv(file, **scan_kwargs(options))
-    blank, empty = _blank_lines(file, scan_kwargs(options))
-    if blank and not empty:
+    if skip_blank:  # the file has blank lines and no rows of empty fields (_blank_lines)
         # pandas skips blank lines, which Polars reads as rows of missing values: they make
         # no integer column float
         frame = frame.filter(~pl.all_horizontal(pl.all().is_null()))

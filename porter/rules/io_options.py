@@ -126,24 +126,26 @@ PANDAS_CSV_INTS = (
 # 1.5e-7 for 1.5e-07 (the digits are the same shortest ones; only the layout differs, for
 # magnitudes below 1e-4 and exponents of one digit). NaN is an empty field, as pandas writes it.
 CSV_FLOATS_CONSTANT = "PANDAS_CSV_FLOATS"
-CSV_FLOATS_DEFINITION = """\
-# Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
-# writes 0.00005 and 1.5e-7; NaN as an empty field.
-PANDAS_CSV_FLOATS = (
-    pl.selectors.float().fill_nan(None).cast(pl.String)
-    .str.replace(r"e-(\\d)$", "e-0${1}")
-    .str.replace(r"^(-?)0\\.0000(\\d)$", "${1}${2}e-05")
-    .str.replace(r"^(-?)0\\.0000(\\d)(\\d+)$", "${1}${2}.${3}e-05")
-)
-"""
+# Polars' text of a float made Python's repr (pattern, replacement), in this order
+FLOAT_REPR = ((r"e-(\d)$", "e-0${1}"),
+              (r"^(-?)0\.0000(\d)$", "${1}${2}e-05"),
+              (r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05"))
+CSV_FLOATS_DEFINITION = (
+    "# Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars\n"
+    "# writes 0.00005 and 1.5e-7; NaN as an empty field.\n"
+    "PANDAS_CSV_FLOATS = (\n"
+    "    pl.selectors.float().fill_nan(None).cast(pl.String)\n"
+    + "".join(f'    .str.replace(r"{pattern}", "{text}")\n' for pattern, text in FLOAT_REPR)
+    + ")\n")
+
 
 def float_text(number: Code) -> Code:
     """One float column's values as pandas' astype(str) writes them: Python's repr (5e-05,
-    1.5e-07), as PANDAS_CSV_FLOATS above writes them (keep the two in step); NaN is missing."""
-    return (number.method("fill_nan", None).method("cast", emit.atom("pl.String"))
-            .attr("str").method("replace", r"e-(\d)$", "e-0${1}")
-            .attr("str").method("replace", r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
-            .attr("str").method("replace", r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05"))
+    1.5e-07), with PANDAS_CSV_FLOATS' replacements (FLOAT_REPR); NaN is missing."""
+    code = number.method("fill_nan", None).method("cast", emit.atom("pl.String"))
+    for pattern, text in FLOAT_REPR:
+        code = code.attr("str").method("replace", pattern, text)
+    return code
 
 
 # An expression, defined once at the top of a converted script, that writes every column of
