@@ -117,6 +117,9 @@ FRAMES = [
     pytest.param('df.drop_duplicates(subset=["k", "v"])', id="drop_duplicates two columns"),
     pytest.param('df.drop_duplicates(subset=["v"], keep=False)', id="drop_duplicates NaN equals None"),
     pytest.param("df.drop_duplicates()", id="drop_duplicates whole rows"),
+    pytest.param('df.drop_duplicates(keep="last")', id="drop_duplicates whole rows last"),
+    pytest.param('df[df["v"] > 1].drop_duplicates(["k"], keep="last")', id="drop_duplicates last after filter"),
+    pytest.param('df[df["v"] > 99].drop_duplicates(["k"], keep="last")', id="drop_duplicates last of empty"),
     pytest.param('df.sort_values("v", kind="stable")', id="sort ties stable"),
     pytest.param('df.sort_values("v", ascending=False, kind="stable")', id="sort descending NaN last"),
     pytest.param('df.sort_values(["k", "v"], ascending=[True, False])', id="sort ascending list"),
@@ -208,6 +211,19 @@ df["c"] = df["n"].isin([33, 7.0])
 result = df
 """)
     assert 'pl.col("n").cast(pl.Float64).is_in([3.0, 5.0])' in result.converted_text
+
+
+def test_drop_duplicates_last_on_columns_of_unknown_names(tmp_path, monkeypatch) -> None:
+    # without --data the names are not known: the row number is left out by a selector
+    (tmp_path / "d.csv").write_text("lot,n\nL1,3\nL2,\nL1,3\n,4\nL2,\n,4\nL3,1\n")
+    monkeypatch.chdir(tmp_path)
+    result = differential("""
+import pandas as pd
+df = pd.read_csv("d.csv")
+result = df.drop_duplicates(keep="last")
+lots = df.drop_duplicates("lot", keep="last")
+""", "result", "lots")
+    assert 'pl.selectors.exclude("__row")' in result.converted_text
 
 
 def test_isin_whole_numbers_on_a_column_of_unknown_type_is_lowered() -> None:

@@ -61,7 +61,13 @@ summer = pl.scan_csv(
     infer_schema_length=None,
 )
 season = pl.concat([spring, summer], how="diagonal_relaxed")
-season = season.unique(["hive", "date"], keep="last", maintain_order=True)
+season = (
+    season
+    .with_row_index("__row")
+    .unique(["hive", "date"], keep="last")
+    .sort("__row")
+    .drop("__row")
+)
 stats = pl.concat([
     season.select(
         pl.lit("count").alias("index"),

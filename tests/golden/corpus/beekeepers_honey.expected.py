@@ -236,10 +236,12 @@ def main():
     harvests = pl.concat([spring, summer], how="diagonal_relaxed")
     print(harvests.select(pl.len()).collect().item())
 
-    harvests = harvests.unique(
-        ["hive_id", "harvest_date"],
-        keep="last",
-        maintain_order=True,
+    harvests = (
+        harvests
+        .with_row_index("__row")
+        .unique(["hive_id", "harvest_date"], keep="last")
+        .sort("__row")
+        .drop("__row")
     )
     harvests = harvests.with_columns(
         keeper=pl.col("keeper").str.strip_chars().str.to_lowercase(),

@@ -226,7 +226,13 @@ per_day = (
     .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort(["gaffer", "day"])
 )
-rates = gaffers.unique("gaffer", keep="last", maintain_order=True)
+rates = (
+    gaffers
+    .with_row_index("__row")
+    .unique("gaffer", keep="last")
+    .sort("__row")
+    .drop("__row")
+)
 per_day = (
     per_day
     .rename(

@@ -108,7 +108,13 @@ milk = milk.with_columns(
 )
 
 # the wage list has Luzi twice (a raise in July): the later line counts
-wages = herders.unique("herder_key", keep="last", maintain_order=True)
+wages = (
+    herders
+    .with_row_index("__row")
+    .unique("herder_key", keep="last")
+    .sort("__row")
+    .drop("__row")
+)
 milk = (
     milk
     .rename(

@@ -282,7 +282,13 @@ tags = (
 )   # 0 kg wet: empty bag, still tagged
 
 # the re-rigged line 7 is in the lines sheet twice: keep the newest (last) row
-lines = lines.unique("line", keep="last", maintain_order=True)
+lines = (
+    lines
+    .with_row_index("__row")
+    .unique("line", keep="last")
+    .sort("__row")
+    .drop("__row")
+)
 per_line = (
     tags
     .drop_nulls("line")
