@@ -9,6 +9,7 @@ from __future__ import annotations
 import argparse
 from collections import Counter
 import inspect
+import json
 from pathlib import Path
 import sys
 
@@ -16,6 +17,7 @@ from porter.mapping import MappingTable, load_table
 from porter.rules import registry
 
 DOC = Path(__file__).resolve().parent.parent / "docs" / "coverage.md"
+MEASURED = DOC.parent / "confidence.json"  # written by tests/measure_confidence.py
 
 
 def _cell(text: str) -> str:
@@ -32,8 +34,22 @@ def _docstring_counts() -> list[str]:
     return ["| category | scripts |", "|---|---|", *rows, ""] if rows else []
 
 
+def _measured() -> dict[str, dict[str, float]]:
+    if not MEASURED.exists():
+        return {}
+    return json.loads(MEASURED.read_text(encoding="utf-8"))
+
+
+def _measured_cell(record: dict[str, float] | None) -> str:
+    """agreed / trials of the key's own cases on random tables, as a rate and a count."""
+    if not record or not record.get("trials"):
+        return ""
+    return f"{record['agreed'] / record['trials']:.2f} ({record['agreed']:g}/{record['trials']:g})"
+
+
 def render(table: MappingTable) -> str:
     rules = registry()
+    measured = _measured()
     entries = sorted(table, key=lambda e: (e.area, e.key))
     counts = Counter(e.status for e in entries)
     lines = [
@@ -48,6 +64,11 @@ def render(table: MappingTable) -> str:
         "Confidence is the probability that the rewrite gives pandas' result on any valid input; a",
         "rule lowers it for a particular site when it cannot rule a difference out, and says why.",
         "",
+        "Measured: each key's own `cases` (in the table) run with pandas and as converted on",
+        "random tables (missing values, ties, halves, unicode, 0 to 25 rows), the share that",
+        f"agree, from `tests/measure_confidence.py` ({len(measured)} keys measured so far);",
+        "the suite fails when a key's rate is below the confidence porter states for it.",
+        "",
         "Measured on code porter did not write: the `>>>` examples of pandas' own docstrings,",
         "converted and run both ways — counts per category (same, flagged, different) in",
         "[docstrings.md](docstrings.md), refreshed on demand by `tests/external/pandas_docstrings.py`.",
@@ -55,15 +76,17 @@ def render(table: MappingTable) -> str:
         *_docstring_counts(),
     ]
     for area in sorted({e.area for e in entries}):
-        lines += [f"## {area}", "", "| pandas | status | Polars | confidence | handles / advice |",
-                  "|---|---|---|---|---|"]
+        lines += [f"## {area}", "",
+                  "| pandas | status | Polars | confidence | measured | handles / advice |",
+                  "|---|---|---|---|---|---|"]
         for entry in (e for e in entries if e.area == area):
             detail = entry.advice if entry.status == "todo" else "; ".join(entry.handles)
             if entry.notes:
                 detail = f"{detail}. {entry.notes}" if detail else entry.notes
             confidence = "" if entry.status == "todo" else f"{entry.confidence:.2f}"
             lines.append(f"| `{entry.key}` | {entry.status} | {_cell(entry.polars or '')} | "
-                         f"{confidence} | {_cell(detail)} |")
+                         f"{confidence} | {_measured_cell(measured.get(entry.key))} | "
+                         f"{_cell(detail)} |")
         lines.append("")
     lines += ["## Rules", ""]
     seen: set[str] = set()
