@@ -2,9 +2,11 @@
 conversions that the sample itself lets through.
 
 pandas is the reference: the original script runs with pandas on every trial. The broken
-conversions in verify_fixtures/trials/ each fall into a known trap (a group for a missing key,
-a count of rows where pandas counts values, a missing value taken as 0, halves rounded away
-from zero); the sample holds none of those cases, so verifying on it says "same".
+conversions in verify_fixtures/trials/ and trials_ferry/ each fall into a known trap (a group
+for a missing key, a count of rows where pandas counts values, a missing value taken as 0,
+halves rounded away from zero, ties of a sort key put in another order, missing values sorted
+first, a join that gives the rows in the other table's order); the sample holds none of those
+cases, so verifying on it says "same".
 """
 
 from __future__ import annotations
@@ -22,31 +24,44 @@ from porter.verify.trials import TrialOptions, run_trials
 
 FIXTURES = Path(__file__).resolve().parent / "verify_fixtures" / "trials"
 ORIGINAL = FIXTURES / "landings.py"
-BROKEN = ["broken_null_key.py", "broken_count.py", "broken_mean.py", "broken_round.py"]
+FERRY = Path(__file__).resolve().parent / "verify_fixtures" / "trials_ferry"
+# (data folder, original, broken conversion, the file whose rows the trials vary most)
+BROKEN = [
+    *((FIXTURES, ORIGINAL, name, "data/landings.csv")
+      for name in ["broken_null_key.py", "broken_count.py", "broken_mean.py", "broken_round.py"]),
+    # a sort whose ties or missing values come out in another order, a join that reorders rows
+    *((FERRY, FERRY / "crossings.py", name, "data/crossings.csv")
+      for name in ["broken_ties.py", "broken_missing_first.py", "broken_join_order.py"]),
+]
+BROKEN_IDS = [case[2].removesuffix(".py") for case in BROKEN]
 
 
-def _text(name: str) -> str:
-    return (FIXTURES / name).read_text(encoding="utf-8")
+def _text(name: str, folder: Path = FIXTURES) -> str:
+    return (folder / name).read_text(encoding="utf-8")
 
 
-@pytest.mark.parametrize("broken", BROKEN)
-def test_the_sample_alone_does_not_show_the_broken_conversions(broken):
-    assert verify(ORIGINAL, _text(broken), FIXTURES).verdict == "same"
+@pytest.mark.parametrize("folder, original, broken, main_table", BROKEN, ids=BROKEN_IDS)
+def test_the_sample_alone_does_not_show_the_broken_conversions(folder, original, broken, main_table):
+    assert verify(original, _text(broken, folder), folder).verdict == "same"
 
 
-@pytest.mark.parametrize("broken", BROKEN)
-def test_trials_catch_each_broken_conversion_and_keep_the_smallest_data(broken, tmp_path):
-    result = run_trials(ORIGINAL, _text(broken), FIXTURES,
+@pytest.mark.parametrize("folder, original, broken, main_table", BROKEN, ids=BROKEN_IDS)
+def test_trials_catch_each_broken_conversion_and_keep_the_smallest_data(
+        folder, original, broken, main_table, tmp_path):
+    result = run_trials(original, _text(broken, folder), folder,
                         TrialOptions(trials=12, seed=0, shrink_runs=10, out=tmp_path))
     assert result.disagreements, [t.verdict for t in result.trials]
     found = result.disagreements[0]
     assert len(result.trials) == 12  # every trial runs
-    assert result.trials[found.trial - 1].verdict in ("different", "error")
-    assert found.outputs and {o.comparison.status for o in found.outputs} == {"different"}
+    assert result.trials[found.trial - 1].verdict in ("different", "same-unordered", "error")
+    # rows in another order are a difference too: the order written is part of the output
+    assert found.outputs and {o.comparison.status for o in found.outputs} <= {"different",
+                                                                              "same-unordered"}
     # the folder holds the data that shows it again, smaller than the trial's own
-    assert sum(found.rows.values()) <= result.trials[found.trial - 1].rows["data/landings.csv"]
-    again = verify(ORIGINAL, _text(broken), found.folder)
-    assert again.verdict == "different"
+    assert sum(found.rows.values()) <= sum(result.trials[found.trial - 1].rows.values())
+    assert found.rows[main_table] <= result.trials[found.trial - 1].rows[main_table]
+    again = verify(original, _text(broken, folder), found.folder)
+    assert again.verdict in ("different", "same-unordered")
     assert found.command.endswith(f"--data {found.folder}")
 
 
@@ -59,6 +74,16 @@ def test_faithful_conversions_agree_on_every_trial():
         assert not result.disagreements, result.to_json()
         assert result.agreed + result.skipped == 8
         assert result.varied == ("data/landings.csv",)
+
+
+def test_faithful_conversions_of_a_sort_and_a_join_agree_on_every_trial():
+    original = FERRY / "crossings.py"
+    converted = convert_source(original.read_text(encoding="utf-8"), path=str(original),
+                               options=Options(data_dir=str(FERRY))).converted_text
+    for text in (_text("crossings_polars.py", FERRY), converted):
+        result = run_trials(original, text, FERRY, TrialOptions(trials=8, seed=3))
+        assert not result.disagreements, result.to_json()
+        assert result.agreed + result.skipped == 8
 
 
 def test_the_same_seed_draws_the_same_datasets():
