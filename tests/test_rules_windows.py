@@ -382,6 +382,17 @@ def test_group_rolling_elsewhere_keeps_pandas_group_order(expr: str) -> None:
     differential(GROUPS + f"result = {expr}\n")
 
 
+@pytest.mark.parametrize("expr", [
+    'df.groupby("k")["v"].expanding().sum().droplevel(0)',
+    'df.groupby("g")["v"].rolling(2, min_periods=1).mean().reset_index(level=0, drop=True)',
+])
+def test_group_window_relabelled_kept_in_a_name_is_made_by_pandas(expr: str) -> None:
+    # the values keep their row labels in group order: handed over, pandas makes them again
+    # (this raised an internal error: the relabelled window had no key for its site)
+    result = differential(GROUPS + f"r = {expr}\nresult = r\n")
+    assert [s.key for s in result.todos] == ["groupby.window"], result.converted_text
+
+
 @pytest.mark.parametrize("statement, key", [
     # all labels dropped: pandas assigns by position, the values land on other rows
     ('df["w"] = df.groupby("k")["v"].rolling(2).sum().reset_index(drop=True)', "groupby.window.reset_index"),

@@ -890,6 +890,8 @@ class Relabelled(Column):
 
     in_order: Column | None = field(default=None, kw_only=True)
     pandas: Code | None = field(default=None, kw_only=True)  # made again by pandas, labels and all
+    # kept in a name, the values are made again by pandas (its labels): that site's key
+    key_prefix: str = field(default="groupby.window", kw_only=True)
 
     def aligned_in(self, frame: Frame) -> Column | None:
         if self.in_order is None or self.in_order.frame.rows != frame.rows:
