@@ -923,8 +923,9 @@ def pivot(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: the rows sorted by the index key (a missing key first, as pandas keeps it), the
     new columns in the order of their values; integer cells turn float when a combination is
     missing, as pandas' are (pandas_unstacked); the index key stays a label column.
-    Caveats: a missing value in the columns key (pandas labels a column NaN, Polars "null"),
-    values or columns given as lists, and index left out (the row labels) are TODOs or lower
+    A missing value in the columns key labels a column NaN in pandas: named "nan" (its text)
+    here, where Polars would name it "null".
+    Caveats: values or columns given as lists, and index left out (the row labels) are TODOs or lower
     the confidence. The new columns are named by their values as text.
     """
     frame = call.receiver
@@ -947,11 +948,13 @@ def pivot(call: PandasCall, ctx: RuleContext) -> Value:
     if value_dtype is None:
         ctx.lower("the values' type is not known: pandas turns whole numbers float when a "
                   "combination is missing", 0.9)
-    ctx.lower("the new columns are named by their values as text (pandas keeps the values); "
-              "a missing value in the columns key labels a column NaN in pandas, \"null\" here",
-              0.95)
+    ctx.lower("the new columns are named by their values as text (pandas keeps the values: "
+              "a missing value in the columns key labels a column NaN, named \"nan\" here, "
+              "which to_csv writes as an empty header in pandas)", 0.95)
     code = frame.code.method("select", index, columns, values)
     code = pivot_sorted(code, columns, [index], values, None, value_dtype in ("int", "bool"))
+    # Polars names the column of a missing key "null"; pandas' label is NaN, whose text is "nan"
+    code = code.method("rename", {"null": "nan"}, strict=False)
     int_labels = (index,) if frame.dtype(columns) == "int" else None
     return Frame(code.method("lazy"), columns=None, index=(index,), labels_intact=False,
                  int_labels_except=int_labels, columns_name=columns)

@@ -243,6 +243,7 @@ wide = (
     .collect()
     .pivot(on="river", index="month", values="flow_m3s")
     .sort("month")
+    .rename({"null": "nan"}, strict=False)
     .lazy()
 )
 
