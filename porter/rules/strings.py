@@ -235,13 +235,25 @@ _CASE = {"lower": "to_lowercase", "upper": "to_uppercase", "title": "to_titlecas
 def case(call: PandasCall, ctx: RuleContext) -> Value:
     """s.str.lower() / upper() / title() -> str.to_lowercase() / to_uppercase() / to_titlecase().
 
-    Caveats: a few letters differ: "ß".upper() is "ẞ" in pandas and "SS" in Polars, ligatures
-    ("ﬀ") are kept by pandas and expanded by Polars, a final sigma is "σ" in pandas and "ς" in
-    Polars (confidence below 1 in the table).
+    Handles: "ß" upper-cased to "ẞ", as pandas' kernel does (Polars writes "SS"): it is made
+    "ẞ" first, which Polars keeps.
+    Caveats: a few letters still differ: ligatures ("ﬀ"), "ŉ" and Greek letters with an iota
+    are kept by pandas and expanded by Polars, a final sigma is "σ" in pandas and "ς" in
+    Polars, "ß" first in a word is "ẞ" in pandas' title() and "Ss" in Polars' (confidence
+    below 1 in the table).
     """
     column = text_column(call, ctx)
     ctx.reject_unknown(call)
-    return _string(column, _text(column).method(_CASE[call.name]))
+    text = _text(column)
+    if call.name == "upper":
+        text = _capital_sharp_s(text)
+    return _string(column, text.method(_CASE[call.name]))
+
+
+def _capital_sharp_s(text: Code) -> Code:
+    """`text` (a .str namespace) with "ß" written "ẞ": pandas' (pyarrow's) upper case of "ß",
+    which Polars' to_uppercase keeps; Polars' own is "SS"."""
+    return text.method("replace_all", "ß", "ẞ", literal=True).attr("str")
 
 
 _STRIP = {"strip": "strip_chars", "lstrip": "strip_chars_start", "rstrip": "strip_chars_end"}
@@ -572,13 +584,14 @@ def capitalize(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: the first character upper case and the rest lower case, as pandas' kernel does
     ('ǆ' becomes 'Ǆ', not the title-case 'ǅ' of Python's str.capitalize).
-    Caveats: letters whose case changes their length differ as for upper() and lower() ('ß'
-    first is 'ẞ' in pandas and 'SS' in Polars, ligatures, 'ŉ', a final sigma): 0.98.
+    'ß' first becomes 'ẞ', as in pandas (Polars' upper case is 'SS'), as for upper().
+    Caveats: letters whose case changes their length differ as for upper() and lower()
+    (ligatures, 'ŉ', a final sigma): 0.98.
     """
     column = text_column(call, ctx)
     ctx.reject_unknown(call)
     text = _text(column)
-    first = text.method("head", 1).attr("str").method("to_uppercase")
+    first = _capital_sharp_s(text.method("head", 1).attr("str")).method("to_uppercase")
     rest = text.method("slice", 1).attr("str").method("to_lowercase")
     return _string(column, emit.binop(first, "+", rest))
 

@@ -221,7 +221,10 @@ def load_plots(path):
     plots = pl.scan_csv(path, null_values=PANDAS_NA_VALUES, infer_schema_length=None)
     plots = plots.rename({"water_tap": "tap"}, strict=False)
     plots = plots.with_columns(
-        section=pl.col("section").str.strip_chars().str.to_uppercase(),
+        section=pl.col("section")
+        .str.strip_chars()
+        .str.replace_all("ß", "ẞ", literal=True)
+        .str.to_uppercase(),
     )
     plots = plots.with_columns(
         tap=pl.col("tap").replace({"yes": "Y", "no": "N"}).fill_null(pl.lit("N")),

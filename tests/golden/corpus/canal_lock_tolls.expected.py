@@ -257,7 +257,12 @@ def load_passages(path):
     p = p.with_columns(
         vessel_class=pl.col("vessel_class").str.strip_chars().str.to_lowercase(),
     )
-    p = p.with_columns(lock_id=pl.col("lock_id").str.strip_chars().str.to_uppercase())
+    p = p.with_columns(
+        lock_id=pl.col("lock_id")
+        .str.strip_chars()
+        .str.replace_all("ß", "ẞ", literal=True)
+        .str.to_uppercase(),
+    )
     p = p.unique("passage_id", keep="first", maintain_order=True)
     # one line has a month 13 -- can't price it without a date
     return p.drop_nulls("passed_at")

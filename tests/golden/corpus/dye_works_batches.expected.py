@@ -39,7 +39,10 @@ DYE_COSTS = pl.LazyFrame(
 
 def tidy_codes(batches):
     batches = batches.with_columns(
-        batch_code=pl.col("batch_code").str.strip_chars().str.to_uppercase(),
+        batch_code=pl.col("batch_code")
+        .str.strip_chars()
+        .str.replace_all("ß", "ẞ", literal=True)
+        .str.to_uppercase(),
     )
     batches = batches.with_columns(prefix=pl.col("batch_code").str.head(3))
     batches = batches.with_columns(

@@ -106,7 +106,10 @@ tickets = tickets.with_columns(
 )
 
 tickets = tickets.with_columns(
-    route_code=pl.col("route_code").str.strip_chars().str.to_uppercase(),
+    route_code=pl.col("route_code")
+    .str.strip_chars()
+    .str.replace_all("ß", "ẞ", literal=True)
+    .str.to_uppercase(),
 )
 tickets = tickets.with_columns(fare_class=pl.col("fare_class").str.to_lowercase())
 tickets = tickets.with_columns(

@@ -263,7 +263,9 @@ def load_readings(path):
         .then(pl.lit("="))
         .str.to_datetime("%Y-%m-%d", time_unit="us"),
     )
-    readings = readings.with_columns(stake=pl.col("stake").str.to_uppercase())
+    readings = readings.with_columns(
+        stake=pl.col("stake").str.replace_all("ß", "ẞ", literal=True).str.to_uppercase(),
+    )
     readings = readings.with_columns(observer=pl.col("observer").str.to_titlecase())
     readings = readings.with_columns(snow_cm=pl.col("snow_cm").fill_null(0))
     readings = readings.unique(keep="first", maintain_order=True)

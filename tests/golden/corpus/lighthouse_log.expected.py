@@ -100,7 +100,12 @@ stations = pl.scan_csv(
 print("raw lines:", log.select(pl.len()).collect().item())
 
 log = log.unique(keep="first", maintain_order=True)
-log = log.with_columns(station=pl.col("station").str.strip_chars().str.to_uppercase())
+log = log.with_columns(
+    station=pl.col("station")
+    .str.strip_chars()
+    .str.replace_all("ß", "ẞ", literal=True)
+    .str.to_uppercase(),
+)
 log = log.with_columns(keeper=tidy_names(pl.col('keeper')))
 log = log.with_columns(
     watch_no=pl.col("watch").str.to_lowercase().replace_strict(WATCHES, default=None),

@@ -209,7 +209,10 @@ clean = (
     weighings
     .with_columns(
         variety=pl.col("variety").str.strip_chars().str.to_lowercase(),
-        grade=pl.col("grade").str.strip_chars().str.to_uppercase(),
+        grade=pl.col("grade")
+        .str.strip_chars()
+        .str.replace_all("ß", "ẞ", literal=True)
+        .str.to_uppercase(),
         month=pl.col("pick_date").dt.month().cast(pl.Int32),
     )
     .drop_nulls(["kg", "grade"])

@@ -250,7 +250,10 @@ shows = (
 
 sales = sales.unique("sale_id", keep="first", maintain_order=True)
 sales = sales.with_columns(
-    show_id=pl.col("show_id").str.strip_chars().str.to_uppercase(),
+    show_id=pl.col("show_id")
+    .str.strip_chars()
+    .str.replace_all("ß", "ẞ", literal=True)
+    .str.to_uppercase(),
 )
 sales = sales.with_columns(
     seat_zone=pl.col("seat_zone").str.strip_chars().str.to_lowercase(),

@@ -91,7 +91,10 @@ stations = pl.scan_csv(
 
 readings = readings.unique(keep="first", maintain_order=True)
 readings = readings.with_columns(
-    gauge=pl.col("gauge").str.strip_chars().str.to_uppercase(),
+    gauge=pl.col("gauge")
+    .str.strip_chars()
+    .str.replace_all("ß", "ẞ", literal=True)
+    .str.to_uppercase(),
 )
 readings = (
     readings

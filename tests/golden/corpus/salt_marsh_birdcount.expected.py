@@ -131,7 +131,10 @@ print("lines read:", counts.select(pl.len()).collect().item())
 #   ~pl.struct(cols).is_first_distinct() for keep='first'
 print("lines entered twice:", counts.collect().to_pandas().duplicated().sum())
 counts = counts.with_columns(
-    transect=pl.col("transect").str.strip_chars().str.to_uppercase(),
+    transect=pl.col("transect")
+    .str.strip_chars()
+    .str.replace_all("ß", "ẞ", literal=True)
+    .str.to_uppercase(),
 )
 counts = (
     counts

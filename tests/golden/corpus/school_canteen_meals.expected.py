@@ -39,7 +39,10 @@ meals = pl.scan_csv(
 print(meals.select(pl.len()).collect().item())
 
 meals = meals.with_columns(
-    class_group=pl.col("class_group").str.strip_chars().str.to_uppercase(),
+    class_group=pl.col("class_group")
+    .str.strip_chars()
+    .str.replace_all("ß", "ẞ", literal=True)
+    .str.to_uppercase(),
 )
 meals = meals.with_columns(
     tariff=pl.when(pl.col("reduced_rate") == "yes")

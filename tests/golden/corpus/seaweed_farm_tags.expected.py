@@ -263,7 +263,11 @@ parts = (
     .extract_groups("^\\s*[Ll](\\d+)-([A-Ca-c])(?:/[Ww](\\d+))?\\s*\\n?$")
 )
 tags = tags.with_columns(line=pl.lit("L") + parts.struct.field("1").str.zfill(2))
-tags = tags.with_columns(bay=parts.struct.field("2").str.to_uppercase())
+tags = tags.with_columns(
+    bay=parts.struct.field("2")
+    .str.replace_all("ß", "ẞ", literal=True)
+    .str.to_uppercase(),
+)
 tags = (
     tags
     .with_columns(week=parts.struct.field("3").str.strip_chars().cast(pl.Float64))

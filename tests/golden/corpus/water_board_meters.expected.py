@@ -47,7 +47,12 @@ df = (
 )
 print((df.select(pl.len()).collect().item(), len(df.collect_schema())))
 
-df = df.with_columns(village=pl.col("village").str.strip_chars().str.to_uppercase())
+df = df.with_columns(
+    village=pl.col("village")
+    .str.strip_chars()
+    .str.replace_all("ß", "ẞ", literal=True)
+    .str.to_uppercase(),
+)
 df = df.with_columns(tariff=pl.col("tariff").str.strip_chars().str.to_lowercase())
 df = df.with_columns(
     usage_m3=(pl.col("current_m3") - pl.col("previous_m3"))
