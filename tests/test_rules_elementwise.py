@@ -51,8 +51,9 @@ PORTS = [
     pytest.param('r = df["t"].map(lambda s: len(s))', 'pl.col("t").str.len_chars().cast(pl.Int64)', id="len"),
     pytest.param('r = df["k"].map(lambda x: codes.get(x, "other"))', 'replace_strict(codes, default=pl.lit("other"))',
                  id="dict get with a default"),
-    pytest.param('r = df["v"].map(lambda x: str(x))', 'pl.col("v").cast(pl.String).fill_null("nan")',
-                 id="str of a missing value is nan"),
+    pytest.param('r = df["v"].map(lambda x: str(x))', 'str.replace("e-(\\\\d)$", "e-0${1}")',
+                 id="str of a float is Python's repr"),
+    pytest.param('r = df["v"].map(lambda x: str(x))', '.fill_null("nan")', id="str of a missing value is nan"),
     pytest.param('r = df["p"].map(lambda x: str(x))', 'then(pl.lit("True"))', id="str of a boolean"),
     pytest.param('r = df["s"].map(lambda s: s.upper(), na_action="ignore")',
                  'pl.when(pl.col("s").is_not_null()).then(pl.col("s").str.to_uppercase())',
@@ -178,8 +179,27 @@ def test_map_result_used_as_a_mask() -> None:
                  "result", "other")
 
 
-def test_str_of_floats_lowers_confidence() -> None:
+def test_str_of_small_and_large_floats_is_python_repr() -> None:
+    # Python writes 1e-05 and 1e+16 where Polars' cast writes 0.00001 and 1e16
+    differential("""
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"w": [1e-05, -2.5e-07, 0.00012, 1e16, np.nan, 0.30000000000000004, -0.0, 1.234e-05]})
+df["r"] = df["w"].map(lambda x: "w=" + str(x))
+df["q"] = df["w"].apply(lambda x: str(x * 2))
+result = df
+""")
+
+
+def test_str_of_a_float_column_keeps_the_confidence() -> None:
     result = convert(FRAME + 'r = df["v"].map(lambda x: str(x))\n')
+    site = next(s for s in result.sites if s.key == "series.map")
+    assert site.confidence == 1.0
+
+
+def test_str_of_a_column_of_unknown_type_lowers_confidence() -> None:
+    result = convert('import pandas as pd\ndf = pd.read_csv("scales.csv")\n'
+                     'r = df["v"].map(lambda x: str(x))\n')
     site = next(s for s in result.sites if s.key == "series.map")
     assert site.confidence <= 0.85 and "str()" in site.message
 

@@ -21,7 +21,7 @@ from porter.analysis.row_functions import (
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.rules.io_options import ROW_FUNCTION
+from porter.rules.io_options import ROW_FUNCTION, float_text
 from porter.rules.ops import abs_, compare, int64_branches, int64_lit, may_hold_nan, round_
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_of, derived_column, value_dtype,
@@ -339,7 +339,9 @@ def element_cast(call: PandasCall, ctx: RuleContext) -> Value:
     "2024-01-05 00:00:00" (microseconds only when there are some) and of NaT "NaT", as Python
     writes them; an integer column holding a missing value reaches str() as floats ("7.0",
     "nan"), decided over the whole column at run time, but int(x) is a Python int ("7").
-    Caveats: Python writes some floats differently (1e-05, Polars 0.00001) (0.85).
+    A float is written as Python's repr (1e-05 where Polars writes 0.00001).
+    Caveats: a value whose type porter does not know (0.85): Python writes some floats,
+    booleans and dates differently from Polars' text.
     """
     element = _element(call)
     if call.name == "str":
@@ -354,9 +356,14 @@ def element_cast(call: PandasCall, ctx: RuleContext) -> Value:
                 "then", x.attr("dt").method("strftime", "%Y-%m-%d %H:%M:%S")).method(
                 "otherwise", x.attr("dt").method("strftime", "%Y-%m-%d %H:%M:%S%.6f"))
             return _value(element, code.method("fill_null", "NaT"), dtype="str")
-        if element.dtype in (None, "float"):
-            ctx.lower("Python's str() writes some floats (1e-05) and, without the column type, "
-                      "booleans (True) and dates differently from Polars' text", 0.85)
+        if element.dtype == "float":
+            # Python's repr (1e-05, 1.5e-07) where Polars writes 0.00001 and 1.5e-7; NaN
+            # reaches str() as "nan"
+            return _value(element, float_text(element.code).method("fill_null", "nan"),
+                          dtype="str")
+        if element.dtype is None:
+            ctx.lower("Python's str() writes some floats (1e-05), booleans (True) and dates "
+                      "differently from Polars' text: the column type is not known", 0.85)
         if element.dtype == "int" and not element.python_int:
             # pandas holds an integer column with a missing value as floats: str() writes
             # "7.0", and "nan" for the missing value (decided over the whole column); int(x)
