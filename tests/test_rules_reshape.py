@@ -76,6 +76,15 @@ def test_crosstab_matches_pandas(call: str) -> None:
     assert not result.todos, result.converted_text
 
 
+def test_crosstab_margins_when_no_row_has_both_keys() -> None:
+    # every row misses one key: pandas gives an empty table, Polars' sum_horizontal of no
+    # columns raised (with normalize pandas raises too)
+    source = FRAME + ('df = df[df["shop"].isna() | df["kind"].isna()]\n'
+                      'result = pd.crosstab(df["shop"], df["kind"], margins=True)\n')
+    result = differential(source)
+    assert not result.todos, result.converted_text
+
+
 def test_crosstab_after_reset_index_and_round() -> None:
     differential(FRAME + 'result = pd.crosstab(df["shop"], df["kind"], normalize="index")'
                          '.round(3).reset_index()\n')
@@ -185,6 +194,19 @@ def test_unstack_matches_pandas(call: str) -> None:
     from support import run
     assert column_kinds(run(source)["result"]) == column_kinds(run(result.converted_text)["result"]), \
         result.converted_text
+
+
+def test_unstack_states_pandas_order_of_a_key_value_only_missing_rows_hold() -> None:
+    # kind "w" only in the row whose shop is missing: pandas keeps "w" among the groupby's
+    # labels, unstack removes it and lays kind out as it first comes (z, y, x), not sorted
+    source = ('import pandas as pd\n'
+              'df = pd.DataFrame({"shop": ["b", "c", "a", None], "kind": ["y", "x", "z", "w"], '
+              '"qty": [1.0, 2.0, 3.0, 4.0]})\n'
+              'result = df.groupby(["shop", "kind"])["qty"].sum().unstack()\n')
+    assert list(run(source)["result"].columns) == ["z", "y", "x"]
+    sites = [s for s in convert(source).sites if s.key == "series.unstack"]
+    assert sites and all(s.confidence <= 0.95 for s in sites)
+    assert "first come" in sites[0].message
 
 
 def test_unstack_of_a_series_kept_in_a_name() -> None:

@@ -86,8 +86,8 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
     float (pandas makes the cells float when one combination is missing) are TODOs. The new
     columns are named by their values as text (handed to pandas, those of an integer key get
     pandas' integer labels back); boolean and datetime column keys are TODOs
-    (Polars names them true / 2024-01-01 00:00:00.000000). margins=True on no rows raises in
-    Polars where pandas gives an empty table.
+    (Polars names them true / 2024-01-01 00:00:00.000000). margins=True on no rows (no row
+    with both keys) gives the empty table pandas gives.
     """
     ctx.reject_unknown(call, "index", "columns", "values", "rownames", "colnames", "aggfunc",
                        "margins", "margins_name", "dropna", "normalize", positional=10)
@@ -211,9 +211,12 @@ def _margins(code: Code, key: str, name: str, normalize: str | None) -> Code:
     """The total column and row of a table of counts (one index key), then pandas'
     normalisation: every cell by the total ("all"), each row by its total with the total row
     kept and the total column dropped ("index"), each column by its total with the total column
-    kept and the total row dropped ("columns"); each an exact division of two counts."""
+    kept and the total row dropped ("columns"); each an exact division of two counts. A table
+    without rows (no row has both keys) stays as it is: pandas gives an empty table there, and
+    Polars' sum_horizontal of no columns raises."""
+    table = code
     cells = emit.pl("exclude", key)
-    code = code.method("with_columns", emit.pl("sum_horizontal", cells).method("alias", name))
+    code = emit.atom("t").method("with_columns", emit.pl("sum_horizontal", cells).method("alias", name))
     total_row = emit.atom("t").method("select", emit.pl("lit", name).method("alias", key),
                                       cells.method("sum"))
     code = code.method("pipe", emit.atom(
@@ -227,7 +230,7 @@ def _margins(code: Code, key: str, name: str, normalize: str | None) -> Code:
     elif normalize == "columns":
         code = code.method("with_columns", emit.call(
             DIVIDE_FUNCTION, cells, cells.method("last"))).method("head", -1)
-    return code
+    return table.method("pipe", emit.atom(f"lambda t: t if t.is_empty() else {code.text}"))
 
 
 # -- unstack ------------------------------------------------------------------------------------
@@ -241,7 +244,9 @@ def unstack(call: PandasCall, ctx: RuleContext) -> Value:
     other keys (pandas lays the table out by its sorted labels); fill_value fills a
     combination no row has; without it, every cell float when one is missing, as pandas
     (pandas_unstacked decides on the pivoted table); level as a position or a key name.
-    Caveats: only the Series a groupby(sort=True) made, before any filter or sort (pandas
+    Caveats: a value of the key that only rows with a missing value in another key hold (the
+    groupby dropped them) makes pandas order that key's values by first appearance instead of
+    sorted (0.95). Only the Series a groupby(sort=True) made, before any filter or sort (pandas
     follows the order its labels were made in); text, True/False, date and unknown values
     (pandas makes an object column) and True/False or date column keys are TODOs. The new
     columns are named by their values as text (0.95 unless the key is text); handed to
@@ -278,6 +283,12 @@ def unstack(call: PandasCall, ctx: RuleContext) -> Value:
     fill = call.const("fill_value", 1, None)
     if fill is not None and (isinstance(fill, bool) or not isinstance(fill, (int, float))):
         raise Unsupported("a fill_value that is not a number")
+    # pandas' groupby labels hold every value of each key, also those of rows it dropped for a
+    # missing value in another key; unstack removes the labels no row has left
+    # (remove_unused_levels), which puts the values of such a key in the order they first come
+    ctx.lower("a value of a key that only rows with a missing value in another key hold makes "
+              "pandas lay that key's values out in the order they first come in the grouped "
+              "result, not sorted (its unused labels are removed); porter sorts them", 0.95)
     if column.dtype not in ("int", "float"):
         raise Unsupported(f"values of type {column.dtype or 'unknown'}: pandas makes an object "
                           "column when a combination is missing")
