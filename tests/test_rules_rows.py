@@ -77,6 +77,8 @@ TODOS = [
                  id="sort key function"),
     pytest.param('r = df.replace({"k": {"a": "A"}})', "frame.replace", id="nested replace dict"),
     pytest.param('s2 = df["n"].replace(1, "one")', "series.replace", id="replace with another type"),
+    pytest.param("r = df.replace(np.nan, 0)", "frame.replace",
+                 id="frame replace NaN also fills the text columns (object in pandas)"),
     pytest.param("r = df.sort_index()", "frame.sort_index", id="sort_index"),
     pytest.param('r = df["v"].reset_index()', "series.reset_index", id="series labels as a column"),
 ]
@@ -171,6 +173,8 @@ FRAMES = [
     pytest.param("df.replace(3.0, 0)", id="frame replace number"),
     pytest.param("df.replace(1, 100)", id="frame replace int"),
     pytest.param("df.replace(1, 2.5)", id="frame replace int with fraction"),
+    pytest.param("df.replace(np.nan, -1)", id="frame replace NaN with text columns"),
+    pytest.param('df[["v", "n"]].replace(np.nan, 0)', id="frame replace NaN of number columns"),
 ]
 
 

@@ -526,6 +526,9 @@ def frame_replace(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: pandas replaces in every column where the value occurs; porter replaces in the
     columns whose type can hold it (text values in text columns, numbers in numeric columns).
+    Caveats: NaN replaced with a number is a missing value of every column to pandas: text,
+    date and True/False columns become object columns holding the number, which Polars cannot
+    mix (a TODO where such columns are known, 0.7 where the types are not known).
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
@@ -534,6 +537,18 @@ def frame_replace(call: PandasCall, ctx: RuleContext) -> Value:
     old, new = _types(args)
     if not old or len(old) > 1 or (new and not (old | new) <= {int, float} and old != new):
         raise Unsupported("replacing values of mixed types across a frame")
+    olds = args.keys() if isinstance(args, dict) else [args[0]]
+    if any(isinstance(o, float) and o != o for o in olds):
+        # NaN is every column's missing value to pandas, not only the numeric columns'
+        others = [c for c, t in frame.dtypes if t not in ("int", "float")]
+        if others:
+            raise Unsupported(f"pandas replaces the missing values of {', '.join(others)} too, "
+                              "making object columns of mixed types; Polars cannot mix them "
+                              "(fill the numeric columns with fillna)")
+        if frame.columns is None or len(frame.dtypes) != len(frame.columns):
+            ctx.lower("NaN is a missing value of every column to pandas: it also replaces those "
+                      "of text, date and True/False columns (making them object), which Polars "
+                      "leaves missing", 0.7)
     selector = emit.atom("pl.selectors.string()" if old == {str} else "pl.selectors.numeric()")
     if old != {str} and _fractional_replacement(args):
         # pandas makes an integer column holding the value float; Polars would truncate
