@@ -81,6 +81,8 @@ TODOS = [
                  "series.rolling.apply", id="apply newest of a centred window"),
     pytest.param('r = df["v"].rolling(3, min_periods=0).apply(np.nansum, raw=True)',
                  "series.rolling.apply", id="apply a numpy function by name"),
+    pytest.param('r = df["k"].cumsum()', "series.cumsum",
+                 id="running sum of text (pandas joins the strings)"),
 ]
 
 
@@ -232,6 +234,38 @@ def centred(values):
 @pytest.mark.parametrize("expr", GROUP_WINDOWS)
 def test_more_group_windows_match_pandas(frame: str, expr: str) -> None:
     result = differential(frame + CENTRED + f'df["w"] = {expr}\nresult = df\n')
+    assert not result.todos, result.converted_text
+
+
+TIMES = '''
+import pandas as pd
+df = pd.DataFrame({"k": ["b", "a", "b", "b", KEY, "b", "c", "b"],
+                   "d": ["2024-01-31", None, "2023-12-31", None, "2024-02-29", "2024-01-31",
+                         None, "2024-03-01"]})
+df["d"] = pd.to_datetime(df["d"])
+'''
+
+
+@pytest.mark.parametrize("key", [pytest.param('"a"', id="every key present"),
+                                 pytest.param("None", id="a key missing")])
+@pytest.mark.parametrize("expr", [
+    'df.groupby("k")["d"].rank()', 'df.groupby("k")["d"].rank(method="min", ascending=False)',
+    'df.groupby("k")["d"].rank(method="first")', 'df.groupby("k")["d"].rank(method="dense", pct=True)',
+    'df.groupby("k")["d"].rank(pct=True)', 'df.groupby("k")["d"].cummax()',
+    'df.groupby("k")["d"].cummin()', 'df.groupby("k")["d"].transform("rank")',
+])
+def test_group_windows_of_dates_take_a_missing_date_as_pandas_does(key: str, expr: str) -> None:
+    # where a row's key is missing, pandas takes NaT as the earliest date (ranked first,
+    # carried by cummax's running maximum, cummin missing from there on); otherwise skipped
+    result = differential(TIMES.replace("KEY", key) + f'df["w"] = {expr}\nresult = df\n')
+    assert not result.todos, result.converted_text
+
+
+@pytest.mark.parametrize("expr", ['df.groupby("k")["v"].shift(0)', 'df.groupby(["k", "g"])["n"].shift(0)',
+                                  'df.groupby("k")["v"].diff(0)', 'df.groupby("g")["n"].diff(0)'])
+def test_group_shift_by_zero_keeps_the_rows_of_a_missing_key(expr: str) -> None:
+    # pandas' shift(0) is the column itself and diff(0) is 0 on every row, missing key or not
+    result = differential(GROUPS + f'df["w"] = {expr}\nresult = df\n')
     assert not result.todos, result.converted_text
 
 

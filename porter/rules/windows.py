@@ -131,12 +131,16 @@ def cumulative(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: a missing value stays missing and the running value carries on past it, as with
     pandas' skipna=True.
-    Caveats: skipna=False is a TODO.
+    Caveats: skipna=False and the running sum of a text column (pandas joins the strings) are
+    TODOs.
     """
     column = _column(call)
     ctx.reject_unknown(call, "skipna")
     if call.const("skipna", None, True) is not True:
         raise Unsupported("skipna=False")
+    if column.dtype == "str" and call.name in ("cumsum", "cumprod"):
+        raise Unsupported("a running sum of text: pandas joins the strings so far, Polars has "
+                          "no running join")
     code = ctx.bool_expr(column, column.frame) if column.dtype == "bool" else column.code
     if column.dtype == "bool" and call.name == "cumsum":
         code = code.method("cast", emit.atom("pl.Int64"))
@@ -410,8 +414,29 @@ def group_cumulative(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("skipna=False")
     if column.dtype == "bool":
         raise Unsupported("a running value over booleans")
-    return derived_column(column, _window(grouped, column.code.method(CUMULATIVE[call.name])),
-                          dtype=column.dtype)
+    running = column.code.method(CUMULATIVE[call.name])
+    if call.name in ("cummax", "cummin") and _missing_time_is_earliest(grouped, column, ctx):
+        # where a key is missing, pandas takes a missing time as the earliest of all: cummax
+        # carries the running maximum onto it, cummin is missing from it to the group's end
+        quirk = running.method("forward_fill") if call.name == "cummax" else emit.when(
+            emit.binop(column.code.method("is_null").method("cum_sum"), "==", 0), running)
+        over = emit.when(_keys_present(grouped).method("all"), _over(grouped, running),
+                         _over(grouped, quirk))
+        return derived_column(column, _window(grouped, running, over=over), dtype=column.dtype)
+    return derived_column(column, _window(grouped, running), dtype=column.dtype)
+
+
+def _missing_time_is_earliest(grouped: Grouped, column: Column, ctx: RuleContext) -> bool:
+    """pandas' rank, cummax and cummin of a date or duration column within groups take a
+    missing time (NaT) as the earliest value there is when a row's key is missing anywhere in
+    the frame (pandas 3.1: its groupby transforms then compute on the times as float numbers,
+    where NaT is the lowest number and no longer missing); where every key is present NaT is
+    skipped. porter computes both and picks by the keys (pl.when(keys present .all())). A
+    column of unknown type may hold times: lowered."""
+    if grouped.dropna and column.dtype is None:
+        ctx.lower("the column's type is not known: if it holds dates or durations, pandas takes "
+                  "a missing one as the earliest where a key is missing, porter skips it", 0.9)
+    return grouped.dropna and column.dtype in ("datetime", "duration")
 
 
 @rule("groupby.shift", "groupby.diff")
@@ -438,6 +463,9 @@ def group_shift(call: PandasCall, ctx: RuleContext) -> Value:
     dtype = None if call.name == "diff" and column.dtype in ("datetime", "date") else column.dtype
     if dtype == "int" and (call.name == "diff" or periods != 0 and not kwargs):
         expr, dtype = _as_float(expr), "float"
+    if periods == 0:
+        # pandas gives every row its own value (shift) or 0 (diff), a row of a missing key too
+        return derived_column(column, expr, dtype=dtype)
     return derived_column(column, _window(grouped, expr, kwargs.get("fill_value")), dtype=dtype)
 
 
@@ -511,15 +539,23 @@ def group_rank(call: PandasCall, ctx: RuleContext) -> Value:
     ascending = call.const("ascending", 1, True, kinds=(bool,))
     na_option = call.const("na_option", 2, "keep", kinds=(str,))
     pct = call.const("pct", 3, False, kinds=(bool,))
-    rank = rank_code(column, method, ascending, na_option)
-    if not pct:
-        return derived_column(column, _window(grouped, rank), dtype="float")
-    # the divisor as a window of its own: Polars divides a column by a single value as a
-    # multiplication by its reciprocal (one binary digit off pandas' quotient)
-    total = column.code.method("rank", "dense").method("max") if method == "dense" \
-        else column.code.method("count")
-    ratio = emit.binop(_over(grouped, rank), "/", _over(grouped, total))
-    return derived_column(column, _window(grouped, rank, over=ratio), dtype="float")
+    def ranks(values: Column) -> Code:
+        rank = rank_code(values, method, ascending, na_option)
+        if not pct:
+            return _over(grouped, rank)
+        # the divisor as a window of its own: Polars divides a column by a single value as a
+        # multiplication by its reciprocal (one binary digit off pandas' quotient)
+        total = values.code.method("rank", "dense").method("max") if method == "dense" \
+            else values.code.method("count")
+        return emit.binop(_over(grouped, rank), "/", _over(grouped, total))
+
+    over = ranks(column)
+    if _missing_time_is_earliest(grouped, column, ctx):
+        # a missing time ranked as the earliest there is, where a key is missing (pandas)
+        earliest = column.code.method("cast", emit.atom("pl.Int64")).method("fill_null", -2 ** 63)
+        over = emit.when(_keys_present(grouped).method("all"), over,
+                         ranks(replace(column, code=earliest, dtype="int")))
+    return derived_column(column, _window(grouped, over, over=over), dtype="float")
 
 
 def pct_change_code(column: Column, call: PandasCall, ctx: RuleContext) -> Code:
