@@ -744,6 +744,9 @@ def to_parquet(call: PandasCall, ctx: RuleContext) -> Value:
     """DataFrame.to_parquet -> LazyFrame.sink_parquet.
 
     Handles: the index columns porter tracks are written as columns.
+    Caveats: pandas also marks them as the index in the file's metadata, and pandas'
+    read_parquet restores them as the row labels; the file Polars writes holds them as plain
+    columns (0.9).
     """
     ctx.reject_unknown(call, "path", "index", "engine", "compression", positional=1)
     target = _write_target(call, ctx, "parquet")
@@ -751,6 +754,10 @@ def to_parquet(call: PandasCall, ctx: RuleContext) -> Value:
     index = call.const("index", None, None)
     if index and not frame.index:
         raise ctx.todo("index=True stores the row labels as a column; add it with with_row_index")
+    if frame.index and index is not False:
+        ctx.lower(f"pandas marks {', '.join(frame.index)} as the index in the file's metadata "
+                  "and its read_parquet restores them as the row labels (reset_index() then "
+                  "brings them back as columns); Polars writes them as plain columns", 0.9)
     frame = written_index(frame, index is not False)
     kwargs: dict[str, object] = {}
     compression = call.const("compression", None, None)
