@@ -94,6 +94,20 @@ def _function_pair(spec: Value, ctx: RuleContext) -> tuple[str, Opaque] | None:
     return None
 
 
+def _builtin_pair(spec: Value, ctx: RuleContext) -> tuple[str, str] | None:
+    """("kg", sum) in a named aggregation: the column and the builtin's aggregation name."""
+    node = spec.node if isinstance(spec, Opaque) else None
+    if not (isinstance(node, cst.Tuple) and len(node.elements) == 2):
+        return None
+    function = node.elements[1].value
+    if not (isinstance(function, cst.Name) and function.value in ("sum", "min", "max", "len")):
+        return None
+    column = ctx.evaluate(node.elements[0].value, {})
+    if not (isinstance(column, Opaque) and isinstance(column.const, str)):
+        return None
+    return column.const, how_name(ctx.evaluate(function, {}))
+
+
 def grouped_of(call: PandasCall) -> Grouped:
     assert isinstance(call.receiver, Grouped)
     return call.receiver
@@ -347,6 +361,10 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
                 continue
             if selected is not None and not (isinstance(spec, Opaque) and isinstance(spec.const, tuple)):
                 add(selected, how_name(spec), name)  # g["kg"].agg(total="sum")
+                continue
+            builtin = _builtin_pair(spec, ctx)
+            if builtin is not None:  # g.agg(total=("kg", sum)): pandas 3 calls it per group
+                add(builtin[0], builtin[1], name)
                 continue
             if not (isinstance(spec, Opaque) and isinstance(spec.const, tuple) and len(spec.const) == 2):
                 raise Unsupported("named aggregation needs (column, function) pairs")
