@@ -12,7 +12,7 @@ from porter.rules import rule
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
 )
-from porter.translate.values import Column, Frame, Opaque, Scalar, Value
+from porter.translate.values import Column, Frame, Opaque, PandasValue, Scalar, Value
 
 
 @rule("series.isna", "series.isnull")
@@ -207,6 +207,11 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
             ctx.lower("the columns are not known: a name that is not a column is ignored by "
                       "pandas and an error in Polars", 0.9)
         return with_columns(frame, items)
+    if isinstance(value, (Opaque, PandasValue)) and not (isinstance(value, Opaque) and value.is_const) \
+            and value.code.text.lstrip().startswith(("{", "[")):
+        # a dict (or list) whose values are not all constants (pd.Timestamp(...), a variable):
+        # not one fill value for the numeric columns
+        raise Unsupported("a dict of fill values that are not all constants")
     complete = frame.columns is not None and len(frame.dtypes) == len(frame.columns)
     if isinstance(value, Opaque) and _is_nan(value.const):
         return derive(frame, frame.code, same_rows=True)  # pandas fills NaN with NaN: nothing
@@ -228,7 +233,8 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
                 "fill_null", str(value.const)))
             ctx.lower(f"pandas holds the number {value.const!r} among the texts of "
                       f"{', '.join(others)} (an object column); Polars the text "
-                      f"{str(value.const)!r} (the same in a written file)", 0.9)
+                      f"{str(value.const)!r}: the same in a written file, not to code that "
+                      "compares or computes with the column", 0.5)
             others = []
         elif others:
             raise Unsupported(f"pandas also fills {', '.join(others)} with {value.const!r}, "
