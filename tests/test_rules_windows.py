@@ -269,6 +269,20 @@ def test_group_shift_by_zero_keeps_the_rows_of_a_missing_key(expr: str) -> None:
     assert not result.todos, result.converted_text
 
 
+@pytest.mark.parametrize("frame", [pytest.param(GROUPS, id="ties and missing values"),
+                                   pytest.param(ONE_GROUP_EMPTY, id="no rows")])
+@pytest.mark.parametrize("expr", ['df.groupby("k")["f"].cumsum()', 'df.groupby(["k", "g"])["f"].cumsum()',
+                                  'df.groupby("g")["f"].transform("cumsum")',
+                                  'df.groupby("k", dropna=False)["f"].cumsum()'])
+def test_group_running_sum_of_booleans_counts_the_true_values(frame: str, expr: str) -> None:
+    result = differential(frame + f'df["w"] = {expr}\nresult = df\n')
+    assert not result.todos, result.converted_text
+
+
+def test_group_running_maximum_of_booleans_is_a_todo() -> None:
+    check_todo(GROUPS + 'df["w"] = df.groupby("k")["f"].cummax()\n', "groupby.cummax")
+
+
 def test_group_ranks_are_floats_as_in_pandas() -> None:
     result = differential(GROUPS + 'r = df.groupby("k")["n"].rank(method="min")\n'
                           'result = df.assign(r=r)\n')

@@ -406,14 +406,21 @@ def group_cumulative(call: PandasCall, ctx: RuleContext) -> Value:
     """df.groupby(keys)[col].cumsum() / cumprod / cummax / cummin -> .cum_sum().over(keys).
 
     Handles: the running value restarts in each group and carries on past a missing value
-    (skipna); a missing key gives a missing value.
+    (skipna); a missing key gives a missing value; the running sum of a True/False column
+    counts the True values.
+    Caveats: cumprod / cummax / cummin of True/False are TODOs.
     """
     grouped, column = _selected(call)
     ctx.reject_unknown(call, "skipna")
     if call.const("skipna", None, True) is not True:
         raise Unsupported("skipna=False")
+    if column.dtype == "bool" and call.name != "cumsum":
+        raise Unsupported("a running product, maximum or minimum of booleans")
     if column.dtype == "bool":
-        raise Unsupported("a running value over booleans")
+        # True counted as 1 (pandas' int64; float64 where a key is missing, the same values)
+        running = ctx.bool_expr(column, grouped.frame).method(
+            "cast", emit.atom("pl.Int64")).method("cum_sum")
+        return derived_column(column, _window(grouped, running), dtype="int")
     running = column.code.method(CUMULATIVE[call.name])
     if call.name in ("cummax", "cummin") and _missing_time_is_earliest(grouped, column, ctx):
         # where a key is missing, pandas takes a missing time as the earliest of all: cummax
