@@ -374,12 +374,22 @@ def isin(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(values, Column):
         # pandas tests membership in the other Series' values (no alignment); a missing value
         # is in it when the other Series has one too (nulls_equal=True)
+        mine, theirs = column.code, values.code
+        if {column.dtype, values.dtype} == {"int", "float"}:
+            # pandas compares the numbers by value (3 is in [3.0]); Polars refuses Int64
+            # values in a list of Float64: both as floats
+            mine = mine.method("cast", emit.atom("pl.Float64"))
+            theirs = theirs.method("cast", emit.atom("pl.Float64"))
+        elif column.dtype is None or values.dtype is None:
+            ctx.lower("a column of another number type (an integer column in a float one) fails "
+                      "in Polars, where pandas compares the numbers by value", 0.95)
+        values = replace(values, code=theirs)
         if values.frame.rows == column.frame.rows:
             others = ctx.expr(values, column.frame).method("implode")
         else:
             # another frame: its values are collected first (an expression cannot read it)
             others = values.frame.code.method("select", values.code).method("collect").method("to_series")
-        code = column.code.method("is_in", others, nulls_equal=True)
+        code = mine.method("is_in", others, nulls_equal=True)
         return derived_column(column, code, dtype="bool", others=[values] if values.frame.rows
                               == column.frame.rows else [])
     raise Unsupported("isin with a frame or a value computed by pandas")
