@@ -433,13 +433,15 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
 # -- whole-column reductions ------------------------------------------------------------------
 
 def scalar_of(column: Column, expr: Code, pytype: str | None = None, *,
-              collected: Code | None = None) -> Scalar:
+              collected: Code | None = None, numpy: bool = False) -> Scalar:
     """A reduction of a column: `expr` inside expressions of its frame, `collected` (default
     `expr`) as the Python value.
 
-    A number is numpy's, as pandas gives it (np.float64, np.int64): it divides by zero to
-    inf/NaN where a Python float raises ZeroDivisionError, has .round() / .astype(), and
-    round() rounds it as pandas' value rounds."""
+    A number or a True/False is numpy's, as pandas gives it (np.float64, np.int64, np.bool_):
+    it divides by zero to inf/NaN where a Python float raises ZeroDivisionError, has .round()
+    / .astype() / .item(), round() rounds it as pandas' value rounds, and ~ of a True/False is
+    its negation (~True is -2 in Python). `numpy` asks for numpy's value where the type is not
+    known (a missing number is then NaN, as pandas', not None)."""
     value = collected if collected is not None else expr
     if collected is not None and collected != expr:
         # the Python value is NaN where pandas' is; marked float, it is made null again inside
@@ -447,7 +449,10 @@ def scalar_of(column: Column, expr: Code, pytype: str | None = None, *,
         pytype = "float"
     elif pytype is None and expr.text.endswith(".sum()") and column.dtype in ("int", "float"):
         pytype = column.dtype
-    if pytype in ("int", "float"):
+    if pytype == "bool" or numpy and pytype not in ("int", "float"):
+        code = column.frame.code.method("select", value).method("collect").method(
+            "to_series").method("to_numpy").index(0)
+    elif pytype in ("int", "float"):
         code = column.frame.code.method("select", value)
         if not (value.text.endswith(".cast(pl.Int64)") or collected is not None and collected != expr):
             # an integer as np.int64, as pandas' (an Int32 sum would wrap around in numpy
@@ -472,9 +477,12 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
     the mean, median, std, var (and the min and max of a float column) of no values (an empty
     selection, only missing values, the std of one value) are NaN in pandas and None in
     Polars: the Python value is made NaN (fill_null(float("nan"))).
-    Caveats: the min/max of no values of an integer, boolean or unknown-type column is NaN in
-    pandas and None here (a NaN fill would make every result float) (0.98); so is the mean
-    of a column of unknown type (0.98).
+    Numbers and True/False are numpy's (np.int64, np.float64, np.bool_), as pandas gives
+    them: the min/max of no integers is NaN, ~ of any() is its negation, a zero max divides
+    to inf.
+    Caveats: the min/max of no values of a boolean or unknown-type column is NaN in pandas
+    and None here (a NaN fill would make every result float) (0.98); the mean of a column of
+    unknown type that holds dates is numpy's datetime64, not a pd.Timestamp (0.98).
     """
     column = call.receiver
     assert isinstance(column, Column)
@@ -518,10 +526,14 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         _nan_when_empty(column, how, expr, ctx)
         return replace(scalar_of(column, expr), pytype="datetime")
     if how in NAN_WHEN_EMPTY:
-        return scalar_of(column, expr, collected=_nan_when_empty(column, how, expr, ctx))
+        # numpy's value where Polars' is not a float: the min/max of no integers is NaN there
+        # as in pandas (None from item()), a mean of a column of unknown type a numpy float
+        numpy = column.dtype == "int" or column.dtype is None and how not in ("min", "max")
+        return scalar_of(column, expr, collected=_nan_when_empty(column, how, expr, ctx),
+                         numpy=numpy)
     # a count, or a sum of integers or booleans, is a Python int (stored as a column: Int64)
     whole = how in ("count", "nunique") or how == "sum" and column.dtype in ("int", "bool")
-    return scalar_of(column, expr, "int" if whole else None)
+    return scalar_of(column, expr, "int" if whole else None, numpy=column.dtype is None)
 
 
 NAN_WHEN_EMPTY = ("mean", "median", "min", "max", "std", "var", "quantile")
@@ -540,7 +552,13 @@ def _nan_when_empty(column: Column, how: str, expr: Code, ctx: RuleContext) -> C
                   "datetime: porter writes day_name(), month_name(), quarter, dayofweek and "
                   "dayofyear with its own methods; other Timestamp-only ones (normalize(), "
                   "to_period()) fail on it", 0.9)
-    what = "an integer or boolean" if column.dtype in ("int", "bool") else \
+    if column.dtype == "int":
+        return expr  # numpy's value of a missing number is NaN (scalar_of(numpy=True))
+    if column.dtype is None and how not in ("min", "max"):
+        ctx.lower(f"the {how} of a column of unknown type: pandas' of a date column is a "
+                  "pd.Timestamp, here numpy's datetime64", 0.98)
+        return expr
+    what = "a boolean" if column.dtype == "bool" else \
         "an unknown-type" if column.dtype is None else f"a {column.dtype}"
     missing = "NaT" if column.dtype in ("datetime", "date") else "NaN"
     ctx.lower(f"the {how} of no values (an empty selection or only missing values) of {what} "

@@ -14,5 +14,5 @@ if VERBOSE:
     print(plots.collect_schema().names())
 else:
     plots = plots.head(10)
-total = plots.select(pl.col("fee").sum()).collect().item() + plots.select(pl.col("deposit").sum()).collect().item()
+total = plots.select(pl.col("fee").sum()).collect().to_series().to_numpy()[0] + plots.select(pl.col("deposit").sum()).collect().to_series().to_numpy()[0]
 print(f"total due: {total:.2f}")

@@ -416,7 +416,7 @@ def main():
     )
     print(methods.collect())
     print(
-        payments.select(pl.col("amount").sum()).collect().item(),
+        payments.select(pl.col("amount").sum()).collect().to_series().to_numpy()[0],
         ledger.select(pl.len()).collect().item(),
     )
 

@@ -218,5 +218,5 @@ weekend = tickets.filter(pl.col("weekday") >= 5).collect().lazy()
 )
 print(
     weekend.select(pl.len()).collect().item(),
-    tickets.select(pl.col("revenue").sum()).collect().item(),
+    tickets.select(pl.col("revenue").sum()).collect().to_series().to_numpy()[0],
 )

@@ -316,5 +316,5 @@ print(
     "self-worked lines:",
     unmanned.select(pl.len()).collect().item(),
     "| overtime hours:",
-    pay.select(pl.col("overtime").sum()).collect().item(),
+    pay.select(pl.col("overtime").sum()).collect().to_series().to_numpy()[0],
 )

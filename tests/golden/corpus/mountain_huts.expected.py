@@ -250,5 +250,8 @@ unpaid = (
 )
 print(
     unpaid.select(pl.len()).collect().item(),
-    round(stays.select(pl.col("paid_eur").sum()).collect().item(), 2),
+    round(
+        stays.select(pl.col("paid_eur").sum()).collect().to_series().to_numpy()[0],
+        2,
+    ),
 )

@@ -315,5 +315,5 @@ monthly = (
     .sink_csv("monthly_revenue.csv")
 )
 
-total = monthly.select(pl.col("revenue").sum()).collect().item()
+total = monthly.select(pl.col("revenue").sum()).collect().to_series().to_numpy()[0]
 print(f"season revenue: {total:.2f}")
