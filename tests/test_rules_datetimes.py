@@ -343,6 +343,16 @@ GUESSES = [
     pytest.param('["", "20240105", "20241231", "2024-01-05"]', "coerce", id="compact"),
     pytest.param('["2024-01-05T10:00:00.123", "2024-02-29T23:59:59.5", "2024-01-05T10:00:00"]',
                  "coerce", id="ISO with fractions"),
+    # blanks around the first value are part of pandas' guessed format (" %Y-%m-%d"): each
+    # value needs a run of blanks there (a lock log written "date, time" with a space)
+    pytest.param('[" 2024-01-05", "2024-01-06", "  2024-01-07", "\\t2024-1-8", " 2024-01-09 ",'
+                 ' None]', "coerce", id="a blank before the first value"),
+    pytest.param('["13/01/2024 ", "14/01/2024", "15/01/2024\\t\\t", " 16/01/2024 ", " 5/02/2024 "]',
+                 "coerce", id="a blank after the first value"),
+    pytest.param('[" Jan 5, 2024 ", "\\tfeb 29, 2024  ", "", " 5 Jan 2024 "]', "coerce",
+                 id="blanks around a month name"),
+    pytest.param('[" 2024-01-05 10:00", "  2024-01-06 11:30", "NaT", None]', "raise",
+                 id="blanks before the first value, raise"),
 ]
 
 
@@ -360,6 +370,8 @@ def test_to_datetime_without_format_follows_pandas_guess(values: str, errors: st
     pytest.param('["01/05/2024", "13/01/2024"]', id="month first"),
     # an impossible first date: pandas guesses no format and dateutil refuses it
     pytest.param('["02/30/2024", "01/05/2024"]', id="impossible first date"),
+    # " %Y-%m-%d" from the first value: a value without the blank does not fit it
+    pytest.param('[" 2024-01-05", "2024-01-06"]', id="a blank missing"),
 ])
 def test_to_datetime_without_format_raises_where_pandas_raises(values: str) -> None:
     # pandas is the reference implementation

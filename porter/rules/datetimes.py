@@ -567,6 +567,14 @@ def _guess_definition() -> str:
         f"    first = text.filter(~text.is_in({_NOT_FIRST!r})).first()\n"
         "    if not coerce:  # pandas' texts for NaT are missing, not an error\n"
         f"        text = text.replace({NAT_TEXTS!r}, None)\n"
+        "    # blanks before or after the first value are part of pandas' format: every value\n"
+        "    # needs a run of blanks there, which is read past\n"
+        '    lead, trail = first.str.contains(r"^\\s"), first.str.contains(r"\\s$")\n'
+        '    fits = (~lead | text.str.contains(r"^\\s")) & (~trail | text.str.contains(r"\\s$"))\n'
+        "    text = pl.when(lead).then(text.str.strip_chars_start()).otherwise(text)\n"
+        "    text = pl.when(trail).then(text.str.strip_chars_end()).otherwise(text)\n"
+        '    text = pl.when(fits | text.is_null()).then(text).otherwise(pl.lit(" "))\n'
+        "    first = first.str.strip_chars()\n"
         "    guessed = [\n"
         "        pl.when(first.str.contains(selection)\n"
         "                & read(first.str.replace(pattern, layout), False).is_not_null())\n"

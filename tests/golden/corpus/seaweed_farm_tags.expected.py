@@ -28,6 +28,14 @@ def pandas_to_datetime(text, coerce):
     first = text.filter(~text.is_in(['', 'NaT', 'nat', 'NAT', 'nan', 'NaN', 'NAN', 'now', 'today'])).first()
     if not coerce:  # pandas' texts for NaT are missing, not an error
         text = text.replace(['', 'NaT', 'nat', 'NAT', 'nan', 'NaN', 'NAN'], None)
+    # blanks before or after the first value are part of pandas' format: every value
+    # needs a run of blanks there, which is read past
+    lead, trail = first.str.contains(r"^\s"), first.str.contains(r"\s$")
+    fits = (~lead | text.str.contains(r"^\s")) & (~trail | text.str.contains(r"\s$"))
+    text = pl.when(lead).then(text.str.strip_chars_start()).otherwise(text)
+    text = pl.when(trail).then(text.str.strip_chars_end()).otherwise(text)
+    text = pl.when(fits | text.is_null()).then(text).otherwise(pl.lit(" "))
+    first = first.str.strip_chars()
     guessed = [
         pl.when(first.str.contains(selection)
                 & read(first.str.replace(pattern, layout), False).is_not_null())
