@@ -472,3 +472,12 @@ def test_text_times_a_float_is_a_todo() -> None:
     # pandas raises "Can only string multiply by an integer": kept on pandas, under a TODO
     text = convert(FRAME + 'df["t"] = df["s"] * 2.0\n').converted_text
     assert "# TODO(porter): series.arith" in text and "whole number" in text, text
+
+
+def test_int_clip_with_float_bounds_lowers_confidence() -> None:
+    # pandas keeps an int column int when no value reaches a float bound (written 3), float
+    # when one does (3.0): Polars' column is Float64 either way
+    result = convert("import pandas as pd\ndf = pd.DataFrame({\"i\": [1, 2]})\n"
+                     'df["r"] = df["i"].clip(0.5, 2.5)\n')
+    site = next(s for s in result.sites if s.key == "series.clip")
+    assert site.confidence <= 0.95 and "reaches a float bound" in site.message

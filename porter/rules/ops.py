@@ -488,6 +488,8 @@ def clip(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: an integer column with float bounds becomes float in pandas; Polars would
     truncate the bounds, so the column is cast to Float64 first.
+    Caveats: pandas makes it float only when a value reaches a bound: one that no bound
+    changes stays integer there (written 3, Polars 3.0) (0.95).
     """
     ctx.reject_unknown(call, "lower", "upper", positional=2)
     column = call.receiver
@@ -498,6 +500,9 @@ def clip(call: PandasCall, ctx: RuleContext) -> Value:
     code, dtype = column.code, column.dtype
     if any(isinstance(b, Opaque) and isinstance(b.const, float) for b in bounds) and column.dtype != "float":
         code, dtype = code.method("cast", emit.atom("pl.Float64")), "float"
+        ctx.lower("pandas makes the integer column float only where a value reaches a float "
+                  "bound; when none does it stays integer (written 3 where Polars writes 3.0)",
+                  0.95)
     if any(isinstance(b, Column) for b in bounds):
         raise Unsupported("bounds given per row")
     args = [ctx.expr(b, column.frame) if b is not None else None for b in (lower, upper)]
