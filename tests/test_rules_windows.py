@@ -283,6 +283,27 @@ def test_group_running_maximum_of_booleans_is_a_todo() -> None:
     check_todo(GROUPS + 'df["w"] = df.groupby("k")["f"].cummax()\n', "groupby.cummax")
 
 
+@pytest.mark.parametrize("expr", [
+    'df["d"].diff().astype(str)', 'df.groupby("k")["d"].diff().astype(str)',
+    'df["d"].diff().dt.days', 'df.groupby("k")["d"].diff() / pd.Timedelta(days=1)',
+])
+def test_diff_of_dates_is_a_duration(expr: str) -> None:
+    # typed as a duration, the difference is written as pandas writes a timedelta
+    # ("31 days 00:00:00"; Polars casts no duration to text)
+    result = differential(TIMES.replace("KEY", '"a"') + f'df["w"] = {expr}\nresult = df\n')
+    assert not result.todos, result.converted_text
+
+
+@pytest.mark.parametrize("key", [pytest.param('"a"', id="every key present"),
+                                 pytest.param("None", id="a key missing")])
+@pytest.mark.parametrize("expr", ['df.groupby("k")["gap"].rank()', 'df.groupby("k")["gap"].cummax()',
+                                  'df.groupby("k")["gap"].cummin()'])
+def test_group_windows_of_durations_take_a_missing_one_as_pandas_does(key: str, expr: str) -> None:
+    result = differential(TIMES.replace("KEY", key) + 'df["gap"] = df["d"].diff()\n'
+                          f'df["w"] = {expr}\nresult = df\n')
+    assert not result.todos, result.converted_text
+
+
 def test_group_ranks_are_floats_as_in_pandas() -> None:
     result = differential(GROUPS + 'r = df.groupby("k")["n"].rank(method="min")\n'
                           'result = df.assign(r=r)\n')

@@ -78,8 +78,9 @@ def diff(call: PandasCall, ctx: RuleContext) -> Value:
     if column.dtype == "bool":
         raise Unsupported("diff of booleans is a logical xor in pandas")
     args = [periods] if periods != 1 else []
-    # the difference of dates is a duration (pandas' timedelta64), which porter keeps untyped
-    dtype = None if column.dtype in ("datetime", "date") else column.dtype
+    # the difference of times is a duration (pandas' timedelta64)
+    dtype = "duration" if column.dtype == "datetime" else None if column.dtype == "date" \
+        else column.dtype
     code = column.code.method("diff", *args)
     if dtype == "int":
         code, dtype = _as_float(code), "float"
@@ -467,7 +468,8 @@ def group_shift(call: PandasCall, ctx: RuleContext) -> Value:
     args = [periods] if call.name == "shift" or periods != 1 else []
     expr = column.code.method(call.name, *args, **kwargs)
     # pandas writes fill_value on the rows of a missing key too
-    dtype = None if call.name == "diff" and column.dtype in ("datetime", "date") else column.dtype
+    dtype = column.dtype if call.name != "diff" or column.dtype not in ("datetime", "date") \
+        else "duration" if column.dtype == "datetime" else None
     if dtype == "int" and (call.name == "diff" or periods != 0 and not kwargs):
         expr, dtype = _as_float(expr), "float"
     if periods == 0:
