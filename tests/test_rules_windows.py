@@ -304,6 +304,12 @@ def test_group_windows_of_durations_take_a_missing_one_as_pandas_does(key: str, 
     assert not result.todos, result.converted_text
 
 
+def test_group_running_sum_of_durations_is_a_todo() -> None:
+    # where a key is missing pandas takes a missing duration as -2**63 and sums on from there
+    check_todo(TIMES.replace("KEY", "None") + 'df["gap"] = df["d"].diff()\n'
+               'df["w"] = df.groupby("k")["gap"].cumsum()\n', "groupby.cumsum")
+
+
 def test_group_ranks_are_floats_as_in_pandas() -> None:
     result = differential(GROUPS + 'r = df.groupby("k")["n"].rank(method="min")\n'
                           'result = df.assign(r=r)\n')

@@ -409,7 +409,8 @@ def group_cumulative(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: the running value restarts in each group and carries on past a missing value
     (skipna); a missing key gives a missing value; the running sum of a True/False column
     counts the True values.
-    Caveats: cumprod / cummax / cummin of True/False are TODOs.
+    Caveats: cumprod / cummax / cummin of True/False and the running sum of durations
+    (pandas' goes wrong past a missing one where a key is missing) are TODOs.
     """
     grouped, column = _selected(call)
     ctx.reject_unknown(call, "skipna")
@@ -422,6 +423,9 @@ def group_cumulative(call: PandasCall, ctx: RuleContext) -> Value:
         running = ctx.bool_expr(column, grouped.frame).method(
             "cast", emit.atom("pl.Int64")).method("cum_sum")
         return derived_column(column, _window(grouped, running), dtype="int")
+    if call.name == "cumsum" and column.dtype == "duration" and grouped.dropna:
+        raise Unsupported("a running sum of durations: where a key is missing, pandas' sum runs "
+                          "on past a missing duration as a huge negative number")
     running = column.code.method(CUMULATIVE[call.name])
     if call.name in ("cummax", "cummin") and _missing_time_is_earliest(grouped, column, ctx):
         # where a key is missing, pandas takes a missing time as the earliest of all: cummax
