@@ -61,7 +61,7 @@ TODOS = [
     pytest.param('s2 = df["s"].fillna(0)', "series.fillna", id="a number into a text column"),
     pytest.param('r = df.fillna({"a": "none"})', "frame.fillna", id="dict value of another type"),
     pytest.param('r = df.fillna({"a": np.float64(1.5), "s": "x"})', "frame.fillna",
-                 id="dict of fill values that are not all constants"),
+                 id="dict: a value porter cannot type"),
 ]
 
 
@@ -170,6 +170,15 @@ def test_frame_fillna_with_text_columns_lowers_confidence() -> None:
     result = convert(FRAME + "r = df.fillna(0)\n")
     site = next(s for s in result.sites if s.key == "frame.fillna")
     assert site.confidence <= 0.5 and "s" in site.message and "compares" in site.message
+
+
+def test_frame_fillna_with_a_dict_of_reductions() -> None:
+    # each column filled with its own computed value, also on a filtered frame; porter had
+    # filled the dict itself into the numeric columns (fill_null({...}) fails in Polars)
+    differential(FRAME + """
+result = df.fillna({"a": df["a"].median(), "s": "none", "missing": 0})
+part = df[df["n"] > 1].fillna({"b": df["b"].mean()})
+""", "result", "part")
 
 
 def test_frame_fillna_with_a_dict_of_timestamps() -> None:

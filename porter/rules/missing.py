@@ -6,6 +6,8 @@ arithmetic is followed by fill_nan(None)), so pandas' "missing" is Polars' null 
 
 from __future__ import annotations
 
+import libcst as cst
+
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
@@ -177,6 +179,52 @@ def series_combine_first(call: PandasCall, ctx: RuleContext) -> Value:
     return derived_column(column, code, dtype=dtype, others=[other])
 
 
+def _value_node(call: PandasCall) -> cst.BaseExpression | None:
+    """The expression written as fillna's value (the first argument or value=)."""
+    node = call.node
+    if not isinstance(node, cst.Call):
+        return None
+    positional = [a.value for a in node.args if a.keyword is None and not a.star]
+    named = [a.value for a in node.args if a.keyword is not None and a.keyword.value == "value"]
+    return named[0] if named else positional[0] if positional else None
+
+
+def _fill_each_column(frame: Frame, node: cst.Dict, ctx: RuleContext) -> Value:
+    """df.fillna({"m": df["m"].median(), "d": pd.Timestamp(...), "k": "none"}): each column
+    filled with its own value; a computed one only where its type is the column's (a number
+    into a float column, a date into a datetime column)."""
+    from porter.rules.assign import with_columns
+    items = []
+    for element in node.elements:
+        if not isinstance(element, cst.DictElement):
+            raise Unsupported("a dict of fill values unpacked from another (**)")
+        key = ctx.evaluate(element.key, {})
+        if not (isinstance(key, Opaque) and isinstance(key.const, str)):
+            raise Unsupported("a dict of fill values whose keys are not names written out")
+        name = key.const
+        if frame.columns is not None and name not in frame.columns:
+            continue  # pandas ignores names that are not columns
+        dtype = frame.dtype(name)
+        value = ctx.evaluate(element.value, {})
+        if isinstance(value, Opaque) and value.is_const and not isinstance(value.const, (dict, list)):
+            if _mixes_types(value.const, dtype):
+                raise Unsupported(f"filling {value.const!r} into the {dtype} column {name!r} "
+                                  f"{MIXED_COLUMN}")
+            fill = emit.as_expr(value.const)
+        elif isinstance(value, Scalar) and (dtype == "float" and value.pytype in ("int", "float")
+                                            or dtype == "datetime" and value.pytype == "datetime"):
+            fill = ctx.expr(value, frame)
+        else:
+            written = cst.Module([]).code_for_node(element.value)
+            raise Unsupported(f"filling the {dtype or 'untyped'} column {name!r} with "
+                              f"`{written}`, a value porter cannot type")
+        items.append((name, emit.col(name).method("fill_null", fill), dtype))
+    if frame.columns is None:
+        ctx.lower("the columns are not known: a name that is not a column is ignored by "
+                  "pandas and an error in Polars", 0.9)
+    return with_columns(frame, items)
+
+
 @rule("frame.fillna")
 def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
     """df.fillna(v) -> .fill_null(v); df.fillna({"a": 0}) -> per-column fill_null.
@@ -209,9 +257,12 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
         return with_columns(frame, items)
     if isinstance(value, (Opaque, PandasValue)) and not (isinstance(value, Opaque) and value.is_const) \
             and value.code.text.lstrip().startswith(("{", "[")):
-        # a dict (or list) whose values are not all constants (pd.Timestamp(...), a variable):
+        # a dict (or list) whose values are not all constants (a reduction, pd.Timestamp(...)):
         # not one fill value for the numeric columns
-        raise Unsupported("a dict of fill values that are not all constants")
+        node = _value_node(call)
+        if not isinstance(node, cst.Dict):
+            raise Unsupported("a dict or list of fill values that are not all constants")
+        return _fill_each_column(frame, node, ctx)
     complete = frame.columns is not None and len(frame.dtypes) == len(frame.columns)
     if isinstance(value, Opaque) and _is_nan(value.const):
         return derive(frame, frame.code, same_rows=True)  # pandas fills NaN with NaN: nothing
