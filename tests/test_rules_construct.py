@@ -153,3 +153,23 @@ for ship in ["aa", "bb"]:
 wide = pd.DataFrame(res).fillna(0)
 result = wide.reset_index()
 """, data_dir=str(tmp_path))
+
+
+def test_a_literal_holding_aggregates_of_a_frame_computes_them(tmp_path):
+    """The values written inside a literal frame or Series (`df["fish"].max()`, `df.shape[1]`)
+    are computed from the converted frame, never left as pandas code on a LazyFrame."""
+    from support import same_text
+    same_text('''
+        import pandas as pd
+        df = pd.read_csv("aq.csv")
+        res = pd.DataFrame({"stat": ["max", "mean"], "value": [df["fish"].max(), df["fish"].mean()]})
+        res.to_csv("res.csv", index=False)
+        pd.DataFrame([{"k": "all", "v": df["fish"].sum()}]).to_csv("r2.csv", index=False)
+        n = len(df)
+        r3 = pd.DataFrame({"metric": ["rows", "cols"],
+                           "value": [n, df.shape[1]]})
+        r3.to_csv("r3.csv", index=False)
+        tot = pd.Series({"sales": df["sales"].sum(), "cost": df["cost"].sum()})
+        print(tot)
+        print(pd.Series([df["fish"].min(), df["sales"].max()], name="x"))
+    ''', tmp_path, {"aq.csv": "tank,fish,sales,cost\nT1,3,1.5,2.0\nT2,-1,10.25,5.0\nT3,7,9.0,5.0\n"})

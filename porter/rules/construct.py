@@ -23,7 +23,7 @@ from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import PandasCall, RuleContext
 from porter.translate import handover
-from porter.translate.values import Column, Frame, Opaque, PandasValue, Value
+from porter.translate.values import Column, Frame, Opaque, PandasValue, Scalar, Value
 
 POLARS = {"int": "pl.Int64", "float": "pl.Float64", "str": "pl.String", "bool": "pl.Boolean"}
 
@@ -202,14 +202,47 @@ def data_frame(call: PandasCall, ctx: RuleContext) -> Value:
         # pandas builds the frame exactly as before, Polars takes it over once
         ctx.lower("the data is only known at run time: pandas builds the frame, then it is "
                   "handed to Polars (pl.from_pandas); number column labels become text", 0.9)
-        built = Code(cst.Module([]).code_for_node(call.node)) if call.node is not None else None
-        if built is None or "\n" in built.text:
-            raise ctx.todo("a frame from data built at run time")
         if ctx.inside_from_pandas:  # porter's own hand-over, met again: it stays as written
+            built = Code(cst.Module([]).code_for_node(call.node)) if call.node is not None else None
+            if built is None or "\n" in built.text:
+                raise ctx.todo("a frame from data built at run time")
             ctx.handover = True
             return PandasValue(built)
-        return Frame(emit.pl("from_pandas", built).method("lazy"))
+        # the values inside as porter computes them (`df["x"].max()` of a LazyFrame `df` is
+        # its select ... item()), never the pandas code as written
+        return Frame(emit.pl("from_pandas", _rewritten_call("pd.DataFrame", call, ctx)).method("lazy"))
     raise ctx.todo("building a frame from another pandas object")
+
+
+def _data_node(call: PandasCall) -> cst.CSTNode | None:
+    """The first argument (or data=) as written."""
+    node = call.node
+    if not isinstance(node, cst.Call):
+        return None
+    for i, arg in enumerate(node.args):
+        if arg.keyword is None and i == 0 and not arg.star or \
+                arg.keyword is not None and arg.keyword.value == "data":
+            return arg.value
+    return None
+
+
+def _rewritten_call(func: str, call: PandasCall, ctx: RuleContext) -> Code:
+    """`func(...)` with each argument as porter rewrote it: aggregates and sizes of the
+    script's frames (now LazyFrames) computed the Polars way, pandas values handed over."""
+    def text(value: Value) -> Code:
+        if isinstance(value, (Frame, Column)):
+            return handover.to_pandas(value)
+        if isinstance(value, (Opaque, Scalar, PandasValue)):
+            code = value.code
+            if "\n" in code.text:  # laid out over several lines as written: one line
+                try:
+                    code = Code(ast.unparse(ast.parse(code.text.strip(), mode="eval")))
+                except SyntaxError:
+                    raise ctx.todo("a frame from data built at run time") from None
+            return code
+        raise ctx.todo(f"an argument porter cannot hand over: {value.code.text}")
+    return emit.call(func, *(text(a) for a in call.args),
+                     **{k: text(v) for k, v in call.kwargs.items()})
 
 
 def _filled_by_key(module: object, name: str) -> bool:
@@ -236,13 +269,21 @@ def series(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: the values typed as pandas types them (see pd.DataFrame); the name (pandas' None
     is written "0", the label pandas' to_frame gives it).
-    Caveats: index=, dtype= and values computed at run time are TODOs.
+    A dict or list written out whose values are computed at run time (`{"a": df["a"].sum()}`)
+    is built by pandas from the values porter computes (a hand-over: its labels are the keys).
+    Caveats: index=, dtype= and other values computed at run time are TODOs.
     """
     ctx.reject_unknown(call, "data", "name", "copy", "index", "dtype", positional=3)
     if call.has("index", 1) or call.has("dtype", 2):
         raise ctx.todo("index= and dtype= are not handled by porter yet")
     data = call.arg("data", 0, None)
     name = call.const("name", None, None, kinds=(str,))
+    if isinstance(data, Opaque) and not data.is_const and not ctx.inside_from_pandas \
+            and isinstance(_data_node(call), (cst.Dict, cst.List, cst.Tuple)):
+        # values written out but computed at run time (`{"sales": df["sales"].sum(), ...}`):
+        # pandas builds the Series (its labels are the keys) from the values porter computes
+        ctx.handover = True
+        return PandasValue(_rewritten_call("pd.Series", call, ctx))
     if not (isinstance(data, Opaque) and data.is_const and isinstance(data.const, (list, tuple))):
         raise ctx.todo("a Series from values computed at run time")
     values = list(data.const)
