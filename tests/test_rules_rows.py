@@ -178,6 +178,11 @@ FRAMES = [
     pytest.param("df.replace(1, 100)", id="frame replace int"),
     pytest.param("df.replace(1, 2.5)", id="frame replace int with fraction"),
     pytest.param("df.replace(np.nan, -1)", id="frame replace NaN with text columns"),
+    pytest.param("df.replace(2.5, 0)", id="frame replace a fraction no integer equals"),
+    pytest.param("df[['n', 'v']].replace({1.5: 0, 3: 30})", id="frame replace a fraction and a whole number"),
+    pytest.param('df.assign(r=df["n"].replace(2.5, 0))', id="replace a fraction in an int column"),
+    pytest.param('df.assign(r=df["n"].replace({1.5: 0, 3: 30}))',
+                 id="replace a fraction and a whole number in an int column"),
     pytest.param('df[["v", "n"]].replace(np.nan, 0)', id="frame replace NaN of number columns"),
 ]
 

@@ -522,12 +522,40 @@ def series_replace(call: PandasCall, ctx: RuleContext) -> Value:
     if _fractional_replacement(args) and dtype != "float":
         # pandas makes an integer column float to hold 2.5; Polars would truncate it to 2
         code, dtype = code.method("cast", emit.atom("pl.Float64")), "float"
+    elif _fractional_keys(args) and dtype != "float":
+        if dtype is None:
+            ctx.lower("a fraction to replace in a column of unknown type: Polars casts it to an "
+                      "integer column's type (2.5 to 2) and replaces that value", 0.95)
+        elif dtype == "int":
+            # no integer equals 2.5 in pandas; Polars would cast it to 2 and replace the 2s
+            whole = _whole_keys(args)
+            if whole is None:
+                return derived_column(column, code, dtype=dtype)
+            args = whole
     return derived_column(column, _replacement(code, args), dtype=dtype)
 
 
 def _fractional_replacement(args: tuple[object, object] | dict[Any, Any]) -> bool:
     values = args.values() if isinstance(args, dict) else [args[1]]
-    return any(isinstance(v, float) and v == v and not v.is_integer() for v in values)
+    return any(_fraction(v) for v in values)
+
+
+def _fraction(value: object) -> bool:
+    return isinstance(value, float) and value == value and not value.is_integer()
+
+
+def _fractional_keys(args: tuple[object, object] | dict[Any, Any]) -> bool:
+    keys = args.keys() if isinstance(args, dict) else [args[0]]
+    return any(_fraction(k) for k in keys)
+
+
+def _whole_keys(args: tuple[object, object] | dict[Any, Any]) -> tuple[object, object] | dict[Any, Any] | None:
+    """The replacements an integer column can hold a value of (no fraction to replace), or
+    None when there is none."""
+    if isinstance(args, dict):
+        whole = {k: v for k, v in args.items() if not _fraction(k)}
+        return whole or None
+    return None if _fraction(args[0]) else args
 
 
 @rule("frame.replace")
@@ -564,6 +592,14 @@ def frame_replace(call: PandasCall, ctx: RuleContext) -> Value:
         # pandas makes an integer column holding the value float; Polars would truncate
         selector = selector.method("cast", emit.atom("pl.Float64"))
         ctx.lower("every numeric column becomes float, not only those holding the value", 0.9)
+    elif old != {str} and _fractional_keys(args):
+        # no integer equals 2.5 in pandas; Polars would cast it to an integer column's type (2)
+        # and replace the 2s: the integer columns get only the whole values to replace
+        parts = [_replacement(emit.atom("pl.selectors.float()"), args)]
+        whole = _whole_keys(args)
+        if whole is not None:
+            parts.append(_replacement(emit.atom("pl.selectors.integer()"), whole))
+        return derive(frame, frame.code.method("with_columns", *parts), same_rows=True)
     code = frame.code.method("with_columns", _replacement(selector, args))
     return derive(frame, code, same_rows=True)
 
