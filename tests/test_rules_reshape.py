@@ -530,3 +530,37 @@ q = df[df["grp"] == "g2"].pivot_table(index="grp", columns="cat", values="v", ag
 q.to_csv("q.csv")
 '''
     same_text(source, tmp_path, {"data.csv": "grp,cat,v\ng1,A,1.5\ng1,A,2.5\ng2,A,3.0\ng2,B,4.0\n"})
+
+
+def test_melt_of_a_table_pivoted_on_an_integer_key_gives_integer_variables(tmp_path):
+    """pandas labels the columns of a table unstacked, pivoted or crosstabbed on an integer
+    key with the integers, and melt puts them in the variable column: int64 (sorted and
+    compared as numbers), never the text Polars names the columns by."""
+    same_text('''
+        import pandas as pd
+        df = pd.read_csv("kiln.csv")
+        u = df.groupby(["kiln", "week"])["fires"].sum().unstack(fill_value=0).reset_index()
+        m = u.melt(id_vars="kiln")
+        m = m.sort_values(["week", "kiln"])
+        m.to_csv("out_m.csv", index=False)
+        m[m["week"] > 5].to_csv("out_late.csv", index=False)
+        c = pd.crosstab(df["ward"], df["grade"]).reset_index()
+        cm = c.melt(id_vars="ward", value_vars=None)
+        cm[cm["grade"] >= 2].sort_values("grade").to_csv("out_c.csv", index=False)
+        pt = df.pivot_table(index="kiln", columns="week", values="fires", aggfunc="sum").reset_index()
+        pm = pt.melt(id_vars=["kiln"])
+        pm.sort_values(["week", "kiln"]).to_csv("out_pm.csv", index=False)
+    ''', tmp_path, {"kiln.csv": "kiln,week,fires,ward,grade\nK1,2,1,W1,1\nK1,10,4,W2,3\n"
+                                "K2,2,3,W1,2\nK2,9,5,W1,3\n"})
+
+
+def test_melt_of_integer_labels_beside_text_labels_is_a_todo(tmp_path):
+    (tmp_path / "kiln.csv").write_text("kiln,week,fires\nK1,2,1\nK1,10,4\nK2,2,3\n")
+    result = convert(f'''
+        import pandas as pd
+        df = pd.read_csv("{tmp_path / 'kiln.csv'}")
+        c = pd.crosstab(df["kiln"], df["week"], margins=True).reset_index()
+        result = c.melt(id_vars="kiln")
+    ''', data_dir=str(tmp_path))
+    assert any(s.key == "frame.melt" and s.status == "todo" for s in result.sites), \
+        result.converted_text

@@ -334,14 +334,17 @@ def melt(call: PandasCall, ctx: RuleContext) -> Value:
     row); columns named variable and value (var_name / value_name); value columns of ints and
     floats give floats in both; value_vars left out means every other column (when known);
     without var_name, the variable column of a pivoted table (pivot_table, crosstab, unstack,
-    reset_index() or not) is named after its columns' name, as pandas names it.
+    reset_index() or not) is named after its columns' name, as pandas names it; a table pivoted
+    on an integer key has pandas' integer labels in the variable column (int64, cast from the
+    text Polars names its columns by).
     Caveats: value columns mixing text, numbers or booleans (pandas keeps each value as it is,
     an object column; Polars casts them to one type) are TODOs, and lower the confidence when
     their types are unknown; without var_name, a frame whose columns porter does not know may
     carry a columns.name porter did not follow, which pandas uses instead of "variable"
     (0.95); ignore_index=False, col_level, a frame with an index (reset_index()
-    first) are TODOs. value_vars left out when porter does not know the frame's columns reads
-    them from the frame's schema at run time (a frame held in a name; 0.9, the types unknown).
+    first) are TODOs, as are integer labels beside text ones (a margin). value_vars left out
+    when porter does not know the frame's columns reads them from the frame's schema at run
+    time (a frame held in a name; 0.9, the types unknown).
     """
     offset = 1 if call.receiver is None else 0
     frame = call.receiver if offset == 0 else call.arg("frame", 0)
@@ -399,6 +402,18 @@ def melt(call: PandasCall, ctx: RuleContext) -> Value:
     else:
         value_dtype = _common_value_dtype(frame, value_vars, ctx)
 
+    # a table pivoted on an integer key (unstack, pivot, crosstab): pandas labels those columns
+    # with the key's integers, which melt puts in the variable column (int64; Polars: text)
+    int_variable = False
+    texts = frame.int_labels_except
+    if texts is not None:
+        text_values = [c for c in value_vars if c in texts] if value_vars is not None \
+            else [c for c in texts if c not in id_vars]
+        if text_values:
+            raise Unsupported(f"the value columns mix the key's integers (pandas' labels) and "
+                              f"text ({text_values}): pandas' variable column holds both (an "
+                              "object column), which has no Polars type")
+        int_variable = True
     options: dict[str, object] = {"index": emit.names_arg(id_vars)} if id_vars else {}
     if var_name != "variable":
         options["variable_name"] = var_name
@@ -416,7 +431,10 @@ def melt(call: PandasCall, ctx: RuleContext) -> Value:
             else code.method("unpivot", **options)
         code = (code.method("sort", emit.col(var_name).method("cast", order), _MELT_ROW)
                 .method("drop", _MELT_ROW))
-    dtypes = [(c, frame.dtype(c)) for c in id_vars] + [(var_name, "str"), (value_name, value_dtype)]
+    if int_variable:
+        code = code.method("with_columns", emit.col(var_name).method("cast", emit.atom("pl.Int64")))
+    dtypes = [(c, frame.dtype(c)) for c in id_vars] + \
+        [(var_name, "int" if int_variable else "str"), (value_name, value_dtype)]
     return Frame(code, columns=(*id_vars, var_name, value_name), labels_intact=True,
                  dtypes=tuple((c, t) for c, t in dtypes if t is not None))
 
