@@ -195,7 +195,9 @@ def to_pandas(value: Value) -> Code:
             return base.method(value.kind, **dict(value.options))
         return to_pandas(value.column).attr(value.kind)
     if isinstance(value, Indexer):
-        return to_pandas(value.frame).attr(value.kind)
+        # a Series' s.iloc is the Series' own (not its frame's, nor `s[i]`, which reads labels)
+        owner = value.column if value.column is not None else value.frame
+        return to_pandas(owner).attr(value.kind)
     if isinstance(value, Items):
         if any(code is not None for code in value.labelled):
             # a filtered frame written inline keeps pandas' labels: pandas runs its filter
@@ -293,7 +295,7 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
         inner = ", ".join(parts)
         base = to_pandas(receiver).wrapped(emit.ATOM)
         if isinstance(node.value, cst.Attribute) and node.value.attr.value in ("loc", "iloc") \
-                and isinstance(receiver, Frame):
+                and isinstance(receiver, (Frame, Column)):  # s.iloc[-1] is no s[-1] (a label)
             base = f"{base}.{node.value.attr.value}"
         return Code(f"{base}[{inner}]")
     if isinstance(node, (cst.BinaryOperation, cst.Comparison)) and call.receiver is not None:
