@@ -40,6 +40,9 @@ def _made(source: str, tmp_path: Path) -> dict[str, list[dict[str, str]]]:
     ("trials", "landings.py", "broken_count.py"),
     ("trials", "landings.py", "broken_mean.py"),
     ("trials", "landings.py", "broken_round.py"),
+    ("trials_ferry", "crossings.py", "broken_ties.py"),
+    ("trials_ferry", "crossings.py", "broken_missing_first.py"),
+    ("trials_ferry", "crossings.py", "broken_join_order.py"),
 ])
 def test_every_broken_fixture_is_caught_without_its_data(folder, original, broken, tmp_path):
     script = FIXTURES / folder / original
