@@ -770,3 +770,23 @@ both.to_csv("both.csv", index=False)
 print(both["a"].sum(), both["a"].tolist())
 '''
     same_text(source, tmp_path, {"data.csv": "id,a,b\n1,5,1.5\n2,5,\n3,-2,3.0\n4,0,-1.0\n5,9,2.0\n"})
+
+
+def test_concat_of_true_false_with_numbers_keeps_pandas_values(tmp_path):
+    """A True/False column stacked on one left blank in a file (float64 NaN) or holding 0/1:
+    pandas keeps True/False beside the numbers (an object column); Polars would make them
+    1.0/0.0. The concat is handed to pandas."""
+    result = same_text('''
+        import pandas as pd
+        a = pd.read_csv("a.csv")
+        c = pd.read_csv("c.csv")
+        d = pd.read_csv("d.csv")
+        y = pd.concat([a, c], ignore_index=True)
+        print(y["flag"].tolist())
+        y.to_csv("out_y.csv", index=False)
+        z = pd.concat([a, d, c], ignore_index=True)
+        print(z.groupby("flag").size())
+        z.to_csv("out_z.csv", index=False)
+    ''', tmp_path, {"a.csv": "id,flag\n1,True\n2,False\n", "c.csv": "id,flag\n5,\n",
+                    "d.csv": "id,flag\n7,0\n8,1\n"})
+    assert [s.status for s in result.sites if s.key == "pd.concat"] == ["todo", "todo"]

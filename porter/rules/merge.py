@@ -777,13 +777,22 @@ def _concat_columns(frames: list[Frame], join: str, sort: bool,
 
 
 def _check_mixed_types(frames: list[Frame], ctx: RuleContext) -> None:
-    """pandas keeps text and numbers side by side in one column; diagonal_relaxed would turn
-    the numbers into text."""
+    """pandas keeps text and numbers (or True/False and numbers) side by side in one column;
+    diagonal_relaxed would turn the numbers into text (True/False into numbers)."""
     for column in _union(f.columns or () for f in frames):
         kinds = {f.dtype(column) for f in frames if column in (f.columns or ())}
         if "str" in kinds and kinds & {"int", "float", "bool"}:
             raise ctx.todo(f"column {column!r} holds text in one frame and numbers in another: "
                            "pandas keeps both, Polars would make the numbers text")
+        if "bool" in kinds and kinds & {"int", "float"}:
+            # also a column all blank in one file (float64 NaN): pandas keeps True/False
+            raise ctx.todo(f"column {column!r} holds True/False in one frame and numbers in "
+                           "another: pandas keeps both (an object column), Polars would make "
+                           "True/False 1.0/0.0")
+        if "bool" in kinds and None in kinds:
+            ctx.lower(f"column {column!r} holds True/False in one frame and values of a type "
+                      "porter does not know in another: pandas keeps True/False beside numbers "
+                      "(an object column), Polars would make them 1.0/0.0", 0.9)
 
 
 def _concat_dtypes(frames: list[Frame],
