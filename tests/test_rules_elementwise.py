@@ -165,6 +165,17 @@ def test_column_matches_pandas(expr: str) -> None:
     differential(FRAME + f'df["r"] = {expr}\nresult = df\n')
 
 
+@pytest.mark.parametrize("expr", [
+    pytest.param('df["v"].map({1: "one", 2.5: "two and a half"})', id="whole and fractional keys, float column"),
+    pytest.param('df["n"].map({2.5: "half", 2: "two", 3.0: "three"})', id="fractional and float keys, int column"),
+    pytest.param('df["n"].map(lambda x: {1.5: "a", 4: "b"}.get(x, "other"))', id="get with a fractional key, int column"),
+    pytest.param('df["v"].map(lambda x: {1: "a", 2.5: "b"}.get(x))', id="get with whole and fractional keys, float column"),
+])
+def test_map_number_keys_compare_by_value(expr: str) -> None:
+    # pandas finds a value by equality (2 == 2.0); Polars builds the keys with the column's type
+    differential(FRAME + f'df["r"] = {expr}\nresult = df\n')
+
+
 def test_map_on_an_empty_frame() -> None:
     differential(FRAME + """
 none = df[df["n"] > 100]

@@ -11,6 +11,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from dataclasses import replace
+from typing import Any
 
 import libcst as cst
 
@@ -64,6 +65,23 @@ def _checked(value: Value, ctx: RuleContext) -> Value:
         if site.confidence < ctx.confidence:
             ctx.lower(f"{site.key}: {site.message}", site.confidence)
     return value
+
+
+def keys_of_column_type(mapping: dict[Any, Any], dtype: str | None) -> dict[Any, Any] | None:
+    """A dict of number keys as a column of `dtype` holds them (None when nothing changes):
+    pandas finds a value by equality (2 == 2.0), Polars builds the keys with the column's type:
+    in a float column 1 is written 1.0 (Polars failed on a mix of 1 and 2.5), in an integer
+    column 2.0 is written 2 and a fraction, which no integer equals, is left out (Polars cast
+    2.5 to 2)."""
+    keys = list(mapping)
+    if not keys or not all(isinstance(k, (int, float)) and not isinstance(k, bool) for k in keys):
+        return None
+    if dtype == "float" and not all(isinstance(k, float) for k in keys):
+        return {float(k): v for k, v in mapping.items()}
+    if dtype == "int" and not all(isinstance(k, int) for k in keys):
+        return {int(k): v for k, v in mapping.items()
+                if isinstance(k, int) or (k == k and k.is_integer())}
+    return None
 
 
 def _function(call: PandasCall) -> Value:
@@ -205,8 +223,12 @@ def map_(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(function, Opaque) and isinstance(function.const, dict):
         if call.name == "apply":
             raise Unsupported("apply with a dict")
-        # a named dict stays named in the output; a literal is written out
-        mapping: object = function.code if function.code.text.isidentifier() else function.const
+        # a named dict stays named in the output; a literal is written out (also for a named
+        # dict whose number keys are written as the column holds them)
+        keyed = keys_of_column_type(function.const, column.dtype)
+        const = function.const if keyed is None else keyed
+        mapping: object = function.code if function.code.text.isidentifier() and keyed is None \
+            else const
         # True/False or text values: the result's type (a value not in the dict is missing,
         # NaN in pandas); numbers are left untyped (pandas makes whole numbers float there)
         kinds = {type(v) for v in function.const.values() if v is not None}
@@ -221,7 +243,7 @@ def map_(call: PandasCall, ctx: RuleContext) -> Value:
                     default=None)
             else:
                 code = column.code.method("replace_strict", {
-                    k: None if v is None else float(v) for k, v in function.const.items()},
+                    k: None if v is None else float(v) for k, v in const.items()},
                     default=None)
             return derived_column(column, code.method("fill_nan", None), name=column.name,
                                   dtype="float")
@@ -468,6 +490,10 @@ def element_lookup(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(mapping, Opaque)
     code_mapping: object = mapping.const if mapping.node is not None and not isinstance(
         mapping.node, cst.Name) else mapping.code
+    if isinstance(mapping.const, dict):
+        keyed = keys_of_column_type(mapping.const, element.dtype)
+        if keyed is not None:
+            code_mapping = keyed
     if isinstance(call.node, cst.Subscript):
         code = element.code.method("replace_strict", code_mapping)
     else:
