@@ -790,3 +790,21 @@ def test_concat_of_true_false_with_numbers_keeps_pandas_values(tmp_path):
     ''', tmp_path, {"a.csv": "id,flag\n1,True\n2,False\n", "c.csv": "id,flag\n5,\n",
                     "d.csv": "id,flag\n7,0\n8,1\n"})
     assert [s.status for s in result.sites if s.key == "pd.concat"] == ["todo", "todo"]
+
+
+def test_true_false_column_a_left_merge_leaves_missing_is_nan_as_in_pandas(tmp_path):
+    """A True/False column of the right frame gets a missing value where a left row finds no
+    match: pandas holds True/False/NaN (an object column), so a hand-over to pandas and
+    tolist() give NaN there, never None."""
+    same_text('''
+        import pandas as pd
+        df = pd.read_csv("d.csv")
+        st = pd.read_csv("st.csv", parse_dates=["when"])
+        m = df.merge(st, on="hive", how="left")
+        x = m.set_index("hive")
+        print(x.loc[["H1", "H9"]])
+        print(m["ok"].tolist())
+        print(m["ok"].sum(), m["ok"].mean())
+        m.to_csv("out_m.csv", index=False)
+    ''', tmp_path, {"d.csv": "hive,kg\nH1,1.5\nH2,2.0\nH9,0.5\n",
+                    "st.csv": "hive,ok,when\nH1,True,2024-01-05\nH2,False,2024-02-01\n"})

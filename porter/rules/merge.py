@@ -190,8 +190,10 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower(f"{', '.join(changing)}: pandas makes an int column float (a True/False one "
                   "object) when a row finds no match, which depends on the data; Polars keeps "
                   "its type with missing values", 0.95)
-        # an int column stays "int", marked: its text is decided at run time from the nulls
-        dtypes = {c: t for c, t in dtypes.items() if c not in changing or t == "int"}
+        # an int column stays "int", marked: its text is decided at run time from the nulls;
+        # a True/False one stays "bool", porter's type for True/False that may hold missing
+        # values (as read from a file with blanks): NaN where pandas hands over or lists them
+        dtypes = {c: t for c, t in dtypes.items() if c not in changing or t in ("int", "bool")}
     float_ints = tuple((c, "the merge left a row unmatched") for side in optional
                        for c, t in side.dtypes.items() if t == "int" and c not in side.keys)
     if indicator is not None:
