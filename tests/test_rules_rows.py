@@ -183,6 +183,9 @@ FRAMES = [
     pytest.param('df.assign(r=df["n"].replace(2.5, 0))', id="replace a fraction in an int column"),
     pytest.param('df.assign(r=df["n"].replace({1.5: 0, 3: 30}))',
                  id="replace a fraction and a whole number in an int column"),
+    pytest.param('df.assign(r=df["v"].replace({1: 10, 2.5: 20}))', id="replace whole and fractional keys in a float column"),
+    pytest.param('df.assign(r=df["v"].replace({3.0: 10.5, 1: 20}))', id="replace with a fraction and a whole number"),
+    pytest.param('df.assign(r=df["n"].replace({2.0: 20, 3: 30}))', id="replace whole float keys in an int column"),
     pytest.param('df[["v", "n"]].replace(np.nan, 0)', id="frame replace NaN of number columns"),
 ]
 

@@ -532,7 +532,23 @@ def series_replace(call: PandasCall, ctx: RuleContext) -> Value:
             if whole is None:
                 return derived_column(column, code, dtype=dtype)
             args = whole
+    if isinstance(args, dict) and dtype in ("int", "float"):
+        args = _numbers_as(args, dtype)
     return derived_column(column, _replacement(code, args), dtype=dtype)
+
+
+def _numbers_as(args: dict[Any, Any], dtype: str) -> dict[Any, Any]:
+    """A replacement dict's numbers as a column of `dtype` holds them: Polars builds the keys
+    (and the new values) with the first one's type and fails on a mix of 1 and 2.5; pandas
+    compares by value (2 == 2.0)."""
+    def number(x: object) -> bool:
+        return isinstance(x, (int, float)) and not isinstance(x, bool)
+
+    if dtype == "float":
+        return {float(k) if number(k) else k: float(v) if number(v) and v == v else v
+                for k, v in args.items()}
+    return {int(k) if isinstance(k, float) and k == k and k.is_integer() else k: v
+            for k, v in args.items()}
 
 
 def _fractional_replacement(args: tuple[object, object] | dict[Any, Any]) -> bool:
