@@ -776,7 +776,8 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     turn every cell float when one is missing, as pandas does (pandas_unstacked decides on the
     pivoted table); the index keys stay label columns.
     Caveats: one values column and one columns key; sum, min and max of a column not known to
-    be numbers without fill_value, margins, dropna=False, sort=False and lists or dicts of
+    be numbers without fill_value, margins, dropna=False, sort=False, observed=False on a key
+    that may be a category (pandas keeps its unused categories) and lists or dicts of
     functions are TODOs. The new columns are named by their values as text; handed to pandas,
     those of an integer key get pandas' integer labels back.
     """
@@ -800,6 +801,13 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     if call.const("margins", None, False) or not call.const("dropna", None, True) \
             or not call.const("sort", None, True):
         raise Unsupported("margins, dropna=False or sort=False")
+    if call.const("observed", None, True) is not True and not all(
+            frame.dtype(k) in ("str", "int", "float", "bool", "date", "datetime")
+            for k in (*keys, columns)):
+        # pandas then keeps every category of a Categorical key (pd.cut's bins), used or not:
+        # rows and columns of 0 (count) or missing cells, which the pivot of the groups lacks
+        raise Unsupported("observed=False keeps the unused categories of a category key "
+                          "(rows and columns no row has)")
     how = how_name(call.arg("aggfunc", 3)) if call.has("aggfunc", 3) else "mean"
     if how not in ("sum", "mean", "median", "min", "max", "count"):
         raise Unsupported(f"aggfunc {how!r}")
