@@ -79,9 +79,8 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
     count divided once by its total); margins=True adds the total column and row (margins_name)
     to the counts, and with normalize the margins pandas keeps; values= with aggfunc mean or
     median (float cells, a group whose value is missing dropped, as pandas drops it), and sum /
-    min / max of a float column; several index Series; several columns Series are flattened to
-    one column per combination named b_k (pandas keeps two levels of column labels: 0.9).
-    Caveats: dropna=False, normalize or margins with values, margins with several keys or an
+    min / max of a float column; several index Series.
+    Caveats: several columns Series (pandas keeps two levels of column labels), dropna=False, normalize or margins with values, margins with several keys or an
     index key not known to be text, and sum / min / max / count of a column not known to be
     float (pandas makes the cells float when one combination is missing) are TODOs. The new
     columns are named by their values as text (handed to pandas, those of an integer key get
@@ -123,8 +122,10 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
             ctx.lower("the new columns are named by their values as text (pandas keeps the "
                       "values)", 0.95)
     if len(cols) > 1:
-        ctx.lower("pandas keeps two levels of column labels; porter names each column by its "
-                  "values joined with _", 0.9)
+        # pandas writes and prints a header row per level (to_csv: one line per columns key
+        # and one for the index names), which one level of flattened names cannot give
+        raise Unsupported("several columns Series: pandas keeps two levels of column labels "
+                          "(a header row each in to_csv); Polars has one")
     for s in (*rows, *cols):
         if s.dtype == "category":
             ctx.lower("category keys sort by their categories in pandas; porter sorts by text, "
