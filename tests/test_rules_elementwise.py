@@ -170,6 +170,11 @@ def test_column_matches_pandas(expr: str) -> None:
     pytest.param('df["n"].map({2.5: "half", 2: "two", 3.0: "three"})', id="fractional and float keys, int column"),
     pytest.param('df["n"].map(lambda x: {1.5: "a", 4: "b"}.get(x, "other"))', id="get with a fractional key, int column"),
     pytest.param('df["v"].map(lambda x: {1: "a", 2.5: "b"}.get(x))', id="get with whole and fractional keys, float column"),
+    pytest.param('df["p"].map({1: "yes", 0: "no"})', id="number keys never match True/False in pandas' map"),
+    pytest.param('df["n"].map({True: "t", "1": "s", 2: "two"})', id="True/False and text keys never match numbers"),
+    pytest.param('df["t"].map({1: "one", "ab": "AB"})', id="number keys never match text"),
+    pytest.param('df["p"].map(lambda x: {1: "yes", 0: "no"}.get(x))', id="get: True equals 1 as in Python"),
+    pytest.param('df["n"].map(lambda x: {True: "t", "2": "s"}.get(x, "-"))', id="get: 1 equals True, not a text"),
 ])
 def test_map_number_keys_compare_by_value(expr: str) -> None:
     # pandas finds a value by equality (2 == 2.0); Polars builds the keys with the column's type

@@ -67,21 +67,37 @@ def _checked(value: Value, ctx: RuleContext) -> Value:
     return value
 
 
-def keys_of_column_type(mapping: dict[Any, Any], dtype: str | None) -> dict[Any, Any] | None:
-    """A dict of number keys as a column of `dtype` holds them (None when nothing changes):
-    pandas finds a value by equality (2 == 2.0), Polars builds the keys with the column's type:
-    in a float column 1 is written 1.0 (Polars failed on a mix of 1 and 2.5), in an integer
-    column 2.0 is written 2 and a fraction, which no integer equals, is left out (Polars cast
-    2.5 to 2)."""
-    keys = list(mapping)
-    if not keys or not all(isinstance(k, (int, float)) and not isinstance(k, bool) for k in keys):
+def keys_of_column_type(mapping: dict[Any, Any], dtype: str | None,
+                        python: bool = False) -> dict[Any, Any] | None:
+    """A dict's keys as a column of `dtype` holds them (None when nothing changes). Polars
+    casts the keys to the column's type ("1" and True to 1, 2.5 to 2, 1 to True), where a key
+    of another kind matches nothing: in pandas' map of a dict whose keys are all of one kind a
+    number never equals a text or True/False; with `python` (d.get(x) in a lambda, or keys of
+    several kinds, which pandas compares as Python does) True equals 1. In a float column 1 is
+    written 1.0 (Polars failed on a mix of 1 and 2.5), in an integer column 2.0 is written 2
+    and a fraction, which no integer equals, is left out."""
+    def number(k: object) -> bool:
+        return isinstance(k, (int, float)) and not isinstance(k, bool)
+
+    if dtype in ("int", "float"):
+        kept = {(int(k) if python and isinstance(k, bool) else k): v for k, v in mapping.items()
+                if number(k) or k is None or python and isinstance(k, bool)}
+        if dtype == "float":
+            kept = {float(k) if number(k) else k: v for k, v in kept.items()}
+        else:
+            kept = {int(k) if isinstance(k, float) else k: v for k, v in kept.items()
+                    if not isinstance(k, float) or (k == k and k.is_integer())}
+    elif dtype == "bool":
+        kept = {(bool(k) if number(k) else k): v for k, v in mapping.items()
+                if isinstance(k, bool) or k is None or python and number(k) and k in (0, 1)}
+    elif dtype == "str":
+        kept = {k: v for k, v in mapping.items() if isinstance(k, str) or k is None}
+    else:
         return None
-    if dtype == "float" and not all(isinstance(k, float) for k in keys):
-        return {float(k): v for k, v in mapping.items()}
-    if dtype == "int" and not all(isinstance(k, int) for k in keys):
-        return {int(k): v for k, v in mapping.items()
-                if isinstance(k, int) or (k == k and k.is_integer())}
-    return None
+    if list(kept.items()) == list(mapping.items()) and all(
+            type(a) is type(b) for a, b in zip(kept, mapping)):
+        return None
+    return kept
 
 
 def _function(call: PandasCall) -> Value:
@@ -225,7 +241,11 @@ def map_(call: PandasCall, ctx: RuleContext) -> Value:
             raise Unsupported("apply with a dict")
         # a named dict stays named in the output; a literal is written out (also for a named
         # dict whose number keys are written as the column holds them)
-        keyed = keys_of_column_type(function.const, column.dtype)
+        # keys of one kind make a typed index in pandas (1 never equals True there); keys of
+        # several kinds an object index, which compares as Python does (True == 1)
+        key_kinds = {bool if isinstance(k, bool) else float if isinstance(k, (int, float))
+                     else type(k) for k in function.const if k is not None}
+        keyed = keys_of_column_type(function.const, column.dtype, python=len(key_kinds) > 1)
         const = function.const if keyed is None else keyed
         mapping: object = function.code if function.code.text.isidentifier() and keyed is None \
             else const
@@ -491,7 +511,7 @@ def element_lookup(call: PandasCall, ctx: RuleContext) -> Value:
     code_mapping: object = mapping.const if mapping.node is not None and not isinstance(
         mapping.node, cst.Name) else mapping.code
     if isinstance(mapping.const, dict):
-        keyed = keys_of_column_type(mapping.const, element.dtype)
+        keyed = keys_of_column_type(mapping.const, element.dtype, python=True)
         if keyed is not None:
             code_mapping = keyed
     if isinstance(call.node, cst.Subscript):
