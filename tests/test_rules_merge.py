@@ -58,22 +58,26 @@ PORTS = [
         id="inner: left order, missing keys match"),
     pytest.param(
         'result = pd.merge(left, right, on="k", how="left")',
-        'left.join(right, on="k", how="left", nulls_equal=True, maintain_order="left_right")',
+        'left.join(right, on="k", how="left", nulls_equal=True, maintain_order="left_right")'
+        ".collect().pipe(lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ('rv',) if t[c].has_nulls()])).lazy()",
         id="pd.merge left"),
     pytest.param(
         'result = pd.merge(left, right, "left", "k")',
-        'left.join(right, on="k", how="left", nulls_equal=True, maintain_order="left_right")',
+        'left.join(right, on="k", how="left", nulls_equal=True, maintain_order="left_right")'
+        ".collect().pipe(lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ('rv',) if t[c].has_nulls()])).lazy()",
         id="pd.merge with how and on by position"),
     pytest.param(
         'result = left.merge(right, on="k", how="right")',
         '''left.join(right, on="k", how="right", nulls_equal=True, maintain_order="right_left")
-               .select("k", "lv", "rv")''',
+               .select("k", "lv", "rv")
+               .collect().pipe(lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ('lv',) if t[c].has_nulls()])).lazy()''',
         id="right: right order and pandas' column order"),
     pytest.param(
         'result = left.merge(right, on="k", how="outer")',
         '''left.join(right, on="k", how="full", coalesce=True, nulls_equal=True,
                      maintain_order="left_right")
-               .sort("k", nulls_last=True, maintain_order=True)''',
+               .sort("k", nulls_last=True, maintain_order=True)
+               .collect().pipe(lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ('lv', 'rv') if t[c].has_nulls()])).lazy()''',
         id="outer: full, coalesced, sorted by key with missing last"),
     pytest.param(
         'result = left.merge(right, how="cross")',
@@ -83,7 +87,8 @@ PORTS = [
     pytest.param(
         'result = left.merge(right, on="k", how="left", sort=True)',
         '''left.join(right, on="k", how="left", nulls_equal=True, maintain_order="left_right")
-               .sort("k", nulls_last=True, maintain_order=True)''',
+               .sort("k", nulls_last=True, maintain_order=True)
+               .collect().pipe(lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ('rv',) if t[c].has_nulls()])).lazy()''',
         id="sort=True sorts by the keys"),
     pytest.param(
         'result = left.merge(right)',
@@ -105,7 +110,8 @@ PORTS = [
         result = left.merge(keyed, left_on="k", right_on="key", how="left")
         ''',
         '''left.join(keyed, left_on="k", right_on="key", how="left", coalesce=False,
-                     nulls_equal=True, maintain_order="left_right")''',
+                     nulls_equal=True, maintain_order="left_right")
+               .collect().pipe(lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ('w',) if t[c].has_nulls()])).lazy()''',
         id="left_on/right_on keep both key columns"),
     pytest.param(
         '''
@@ -115,7 +121,8 @@ PORTS = [
         '''left.join(keyed, left_on="k", right_on="key", how="full", coalesce=False,
                      nulls_equal=True, maintain_order="left_right")
                .sort(pl.coalesce(pl.col("k"), pl.col("key")), nulls_last=True,
-                     maintain_order=True)''',
+                     maintain_order=True)
+               .collect().pipe(lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ('lv', 'w') if t[c].has_nulls()])).lazy()''',
         id="outer with left_on/right_on sorts by whichever key a row has"),
     pytest.param(
         'result = left.merge(right, left_on="k", right_on="k")',
@@ -137,7 +144,8 @@ PORTS = [
         totals = left.groupby("k").agg(total=("lv", "sum"))
         result = left.merge(totals, on="k", how="left")
         ''',
-        'left.join(totals, on="k", how="left", nulls_equal=True, maintain_order="left_right")',
+        'left.join(totals, on="k", how="left", nulls_equal=True, maintain_order="left_right")'
+        ".collect().pipe(lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ('total',) if t[c].has_nulls()])).lazy()",
         id="on names the index of a grouped frame"),
     pytest.param(
         '''
@@ -375,11 +383,18 @@ def test_confidence_of_a_merge_with_known_columns() -> None:
     assert (found.status, found.confidence) == ("converted", 0.97)
 
 
-def test_an_int_column_that_may_turn_float_lowers_the_confidence() -> None:
-    # pandas makes the other side's int column float when a row finds no match (data decides)
-    found, _ = site('result = left.merge(right, on="k", how="outer")\n', "frame.merge")
-    assert found.status == "converted" and found.confidence == 0.95
-    assert "float" in found.message
+def test_an_int_column_that_may_turn_float_takes_pandas_type_at_run_time() -> None:
+    # pandas makes the other side's int column float when a row finds no match (data decides):
+    # the joined table casts it then, so the types are pandas' and nothing is lowered
+    found, result = site('result = left.merge(right, on="k", how="outer")\n', "frame.merge")
+    assert found.status == "converted" and found.confidence == 0.97, found.message
+    from support import column_kinds
+    expected, actual = run(FRAMES + 'result = left.merge(right, on="k", how="outer")\n'), \
+        run(result.converted_text)
+    assert column_kinds(expected["result"]) == column_kinds(actual["result"])
+    inner = run(convert(FRAMES + 'result = left[left["k"] == "a"].merge(right, on="k", '
+                                 'how="left")\n').converted_text)
+    assert column_kinds(inner["result"]) == ["o", "i", "i"]  # every row matched: int64
 
 
 def test_converted_concat_reports_no_todo() -> None:
@@ -808,3 +823,35 @@ def test_true_false_column_a_left_merge_leaves_missing_is_nan_as_in_pandas(tmp_p
         m.to_csv("out_m.csv", index=False)
     ''', tmp_path, {"d.csv": "hive,kg\nH1,1.5\nH2,2.0\nH9,0.5\n",
                     "st.csv": "hive,ok,when\nH1,True,2024-01-05\nH2,False,2024-02-01\n"})
+
+
+def test_int_column_a_left_merge_leaves_missing_is_float_after_fillna(tmp_path):
+    """pandas holds an int column as float64 once a left merge leaves a row unmatched, and a
+    fillna keeps it float (written 2.0, str "2.0"); where every row matches it stays int64.
+    The joined table gives each such column pandas' type, so a later merge on it joins as
+    pandas does (float64 key against an int64 one)."""
+    same_text('''
+        import pandas as pd
+        df = pd.read_csv("hives.csv")
+        q = pd.read_csv("q.csv")
+        j = df.merge(q, on="queen", how="left")
+        j["age_s"] = j["age"].fillna(0).astype(str)
+        j["age"] = j["age"].fillna(0)
+        print(j["age"].sum(), j["age"].max())
+        j.to_csv("j.csv", index=False)
+        k = df[df["queen"].notna()].merge(q, on="queen", how="left")
+        k["age_s"] = k["age"].fillna(0).astype(str)
+        print(k["age"].sum())
+        k.to_csv("k.csv", index=False)
+        trips = pd.read_csv("trips.csv")
+        docks = pd.read_csv("docks.csv")
+        m = trips.merge(pd.read_csv("boats.csv"), on="boat", how="left").merge(docks, on="dock")
+        m.to_csv("out_m.csv", index=False)
+        d = docks.merge(trips.merge(pd.read_csv("boats.csv"), on="boat", how="left"), on="dock",
+                        how="left")
+        d.to_csv("out_d.csv", index=False)
+    ''', tmp_path, {"hives.csv": "hive,frames,queen\nH1,0,Y\nH2,8,N\nH3,5,Y\nH4,0,\n",
+                    "q.csv": "queen,age\nY,2\nN,3\n",
+                    "trips.csv": "boat,route\nB1,R1\nB9,R1\nB2,R2\n",
+                    "boats.csv": "boat,dock\nB1,3\nB2,4\n",
+                    "docks.csv": "dock,harbour\n3,North\n4,South\n"})

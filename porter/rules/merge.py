@@ -161,7 +161,7 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
         marked = [replace(side, code=side.code.method("with_columns", **{mark: emit.pl("lit", True)}))
                   for side, mark in zip((lside, rside), _SIDE_MARKS)]
         lside, rside = marked
-    code = lside.code.method("join", rside.code, **kwargs)
+    code, back_to_int = _join(lside, rside, how, kwargs)
     if how == "right" and coalesced:
         code = _right_join_order(code, lside, rside, columns, suffix or "_right")
     if how == "outer" or (args.const("sort", None, False) and how != "cross"):
@@ -170,7 +170,7 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
     # pandas' key column keeps the int type of the left key after a left or inner merge on
     # one name; with left_on/right_on each key column keeps its own type where the join
     # leaves it no missing value: the cast to Float64 (for the join) is undone there
-    back = [k for k in widened[0] if how in ("left", "inner")]
+    back = [k for k in widened[0] if how in ("left", "inner")] + back_to_int
     if not coalesced and lside.columns is not None and how in ("right", "inner"):
         back += [k for k in widened[1] if k not in lside.columns]
     if back:
@@ -184,12 +184,16 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
     # depends on the data; Polars keeps Int64 with nulls (to_csv writes 10.0 while a missing
     # value is left, but not after a dropna, and astype(str) gives "10")
     optional = {"left": [rside], "right": [lside], "outer": [lside, rside]}.get(how, [])
-    changing = sorted({c for side in optional for c, t in side.dtypes.items()
-                       if t in ("int", "bool") and c not in side.keys})
-    if changing:
-        ctx.lower(f"{', '.join(changing)}: pandas makes an int column float (a True/False one "
+    kinds = {c: t for side in optional for c, t in side.dtypes.items()
+             if t in ("int", "bool") and c not in side.keys}
+    changing = sorted(kinds)
+    # int columns of known names are given pandas' type once the join has run (below)
+    stated = [c for c in changing if kinds[c] == "bool" or columns is None or c not in columns]
+    if stated:
+        ctx.lower(f"{', '.join(stated)}: pandas makes an int column float (a True/False one "
                   "object) when a row finds no match, which depends on the data; Polars keeps "
                   "its type with missing values", 0.95)
+    if changing:
         # an int column stays "int", marked: its text is decided at run time from the nulls;
         # a True/False one stays "bool", porter's type for True/False that may hold missing
         # values (as read from a file with blanks): NaN where pandas hands over or lists them
@@ -207,6 +211,18 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
         if columns is not None:
             columns = (*columns, indicator)
             dtypes[indicator] = "enum"
+    ints = [c for c, _ in float_ints if columns is not None and c in columns]
+    if ints:
+        # pandas' type is known once the join has run: float64 where it left a value missing,
+        # int64 where every row found its match. The joined table gives each such column the
+        # type pandas gives it, so what follows (fillna, astype(str), sums, to_csv) reads it
+        # as pandas does; porter cannot tell which, so it knows no type for them
+        names = emit.render(tuple(ints))
+        code = code.method("collect").method("pipe", emit.atom(
+            f"lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in {names} "
+            "if t[c].has_nulls()])")).method("lazy")
+        float_ints = tuple(m for m in float_ints if m[0] not in ints)
+        dtypes = {c: t for c, t in dtypes.items() if c not in ints}
     return Frame(code, columns=columns, labels_intact=True, float_ints=float_ints,
                  index=lside.index if lside.index and rside.index else (),
                  dtypes=tuple((c, dtypes[c]) for c in columns if c in dtypes)
@@ -359,6 +375,30 @@ def _renamed(side: _Side, shared: list[str], suffix: str) -> _Side:
                  tuple(mapping.get(c, c) for c in side.columns or ()),
                  {mapping.get(c, c): t for c, t in side.dtypes.items()},
                  tuple(mapping.get(k, k) for k in side.keys), side.index)
+
+
+def _join(lside: _Side, rside: _Side, how: str, kwargs: dict[str, object]) -> tuple[Code, list[str]]:
+    """left.join(right); an int key joined to a key whose type porter does not know (an int
+    column an earlier merge made float where it left a row unmatched, as pandas does) takes
+    that key's type at run time when it is a number (Polars refuses to join Int64 to Float64;
+    pandas joins them, and a left or inner merge keeps the left key's type). Also the left
+    int keys cast so, to give back their Int64 after the join."""
+    pairs = [(lk, rk, lside.dtypes.get(lk), rside.dtypes.get(rk))
+             for lk, rk in zip(lside.keys, rside.keys)]
+    loose = [(lk, rk, a, b) for lk, rk, a, b in pairs if {a, b} == {"int", None}]
+    if how not in ("left", "inner") or len(loose) != 1:
+        return lside.code.method("join", rside.code, **kwargs), []
+    lk, rk, a, _ = loose[0]
+    other, name, key = ("__right", rk, lk) if a == "int" else ("__left", lk, rk)
+    kind = emit.atom(f"{other}.collect_schema()[{emit.render(name)}]")
+    # a number: its type; anything else stays Int64 (Polars raises, as pandas does)
+    target = emit.atom(f"{kind.text} if {kind.text}.is_numeric() else pl.Int64")
+    cast = emit.col(key).method("cast", target)
+    if a == "int":  # the right key's type decides; the left key is Int64 again afterwards
+        joined = lside.code.method("with_columns", cast).method("join", emit.atom(other), **kwargs)
+        return rside.code.method("pipe", emit.atom(f"lambda {other}: {joined.text}")), [lk]
+    joined = emit.atom(other).method("join", rside.code.method("with_columns", cast), **kwargs)
+    return lside.code.method("pipe", emit.atom(f"lambda {other}: {joined.text}")), []
 
 
 def _common_key_types(lside: _Side, rside: _Side) -> tuple[_Side, _Side]:

@@ -316,13 +316,23 @@ def main():
         )
         .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
         .sort("apiary")
+        .collect()
+        .lazy()
     )
-    per_apiary = per_apiary.join(
-        APIARIES,
-        on="apiary",
-        how="left",
-        nulls_equal=True,
-        maintain_order="left_right",
+    per_apiary = (
+        per_apiary
+        .join(
+            APIARIES,
+            on="apiary",
+            how="left",
+            nulls_equal=True,
+            maintain_order="left_right",
+        )
+        .collect()
+        .pipe(
+            lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("altitude_m",) if t[c].has_nulls()]),
+        )
+        .lazy()
     )
     per_apiary = (
         per_apiary
