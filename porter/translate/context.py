@@ -303,6 +303,16 @@ def lost_float_ints(key: str, call: PandasCall, result: Value, ctx: RuleContext)
     receiver = call.receiver
     if isinstance(receiver, Column) and receiver.float_int is not None:
         name = receiver.name or "the column"
+        if key in _FILLS and isinstance(result, Column) and result.dtype in ("int", None) \
+                and result.frame.rows == receiver.frame.rows:
+            # a fill is the script saying values went missing: pandas' column was float64 then,
+            # and stays float once filled (3.0). Made Float64 here, it differs only where the
+            # step before left nothing missing (pandas keeps int64 there: 3)
+            ctx.lower(f"pandas holds `{name}` as float64 when {receiver.float_int}, and filled it "
+                      "stays float: porter makes it Float64, which writes 3.0 where pandas "
+                      "writes 3 if nothing was missing", 0.95)
+            return replace(result, code=result.code.method("cast", emit.atom("pl.Float64")),
+                           dtype="float", float_int=None)
         if key in _FILLS or key in _REDUCTIONS \
                 or isinstance(result, Column) and result.frame.rows != receiver.frame.rows:
             ctx.lower(float_int_reason([name], receiver.float_int), 0.9)
