@@ -544,7 +544,8 @@ def _guess_definition() -> str:
     rows = []
     for fmt in GUESSED_FORMATS:
         port = strptime_port(fmt, month_number=True)
-        assert isinstance(port, Strptime)
+        assert isinstance(port, Strptime) and port.pattern.startswith("(?i)^(?:") \
+            and port.pattern.endswith(")|^")  # the blanks around it are added there
         rows.append(f"            # {fmt}\n"
                     f"            ({guess_selection(fmt)!r},\n"
                     f"             {port.pattern!r},\n"
@@ -567,18 +568,22 @@ def _guess_definition() -> str:
         f"    first = text.filter(~text.is_in({_NOT_FIRST!r})).first()\n"
         "    if not coerce:  # pandas' texts for NaT are missing, not an error\n"
         f"        text = text.replace({NAT_TEXTS!r}, None)\n"
-        "    # blanks before or after the first value are part of pandas' format: every value\n"
-        "    # needs a run of blanks there, which is read past\n"
-        '    lead, trail = first.str.contains(r"^\\s"), first.str.contains(r"\\s$")\n'
-        '    fits = (~lead | text.str.contains(r"^\\s")) & (~trail | text.str.contains(r"\\s$"))\n'
-        "    text = pl.when(lead).then(text.str.strip_chars_start()).otherwise(text)\n"
-        "    text = pl.when(trail).then(text.str.strip_chars_end()).otherwise(text)\n"
-        '    text = pl.when(fits | text.is_null()).then(text).otherwise(pl.lit(" "))\n'
+        "    # blanks before or after the first value are part of pandas' format (' %Y-%m-%d'):\n"
+        "    # every value needs a run of blanks there\n"
+        '    bare, lead, trail = (~first.str.contains(r"^\\s|\\s$"), first.str.contains(r"^\\s"),\n'
+        '                         first.str.contains(r"\\s$"))\n'
         "    first = first.str.strip_chars()\n"
+        "\n"
+        "    def blanks(pattern, front, back):\n"
+        '        return pattern.replace("^(?:", "^(?:" + front, 1)[:-3] + back + ")|^"\n'
+        "\n"
         "    guessed = [\n"
         "        pl.when(first.str.contains(selection)\n"
         "                & read(first.str.replace(pattern, layout), False).is_not_null())\n"
-        "        .then(text.str.replace(pattern, layout))\n"
+        "        .then(pl.when(bare).then(text.str.replace(pattern, layout))\n"
+        '              .when(~trail).then(text.str.replace(blanks(pattern, r"\\s+", ""), layout))\n'
+        '              .when(~lead).then(text.str.replace(blanks(pattern, "", r"\\s+"), layout))\n'
+        '              .otherwise(text.str.replace(blanks(pattern, r"\\s+", r"\\s+"), layout)))\n'
         "        for selection, pattern, layout in FORMATS\n"
         "    ]\n"
         "    return read(pl.coalesce(guessed if coerce else [*guessed, text]), not coerce)\n"

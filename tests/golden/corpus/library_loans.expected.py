@@ -27,18 +27,22 @@ def pandas_to_datetime(text, coerce):
     first = text.filter(~text.is_in(['', 'NaT', 'nat', 'NAT', 'nan', 'NaN', 'NAN', 'now', 'today'])).first()
     if not coerce:  # pandas' texts for NaT are missing, not an error
         text = text.replace(['', 'NaT', 'nat', 'NAT', 'nan', 'NaN', 'NAN'], None)
-    # blanks before or after the first value are part of pandas' format: every value
-    # needs a run of blanks there, which is read past
-    lead, trail = first.str.contains(r"^\s"), first.str.contains(r"\s$")
-    fits = (~lead | text.str.contains(r"^\s")) & (~trail | text.str.contains(r"\s$"))
-    text = pl.when(lead).then(text.str.strip_chars_start()).otherwise(text)
-    text = pl.when(trail).then(text.str.strip_chars_end()).otherwise(text)
-    text = pl.when(fits | text.is_null()).then(text).otherwise(pl.lit(" "))
+    # blanks before or after the first value are part of pandas' format (' %Y-%m-%d'):
+    # every value needs a run of blanks there
+    bare, lead, trail = (~first.str.contains(r"^\s|\s$"), first.str.contains(r"^\s"),
+                         first.str.contains(r"\s$"))
     first = first.str.strip_chars()
+
+    def blanks(pattern, front, back):
+        return pattern.replace("^(?:", "^(?:" + front, 1)[:-3] + back + ")|^"
+
     guessed = [
         pl.when(first.str.contains(selection)
                 & read(first.str.replace(pattern, layout), False).is_not_null())
-        .then(text.str.replace(pattern, layout))
+        .then(pl.when(bare).then(text.str.replace(pattern, layout))
+              .when(~trail).then(text.str.replace(blanks(pattern, r"\s+", ""), layout))
+              .when(~lead).then(text.str.replace(blanks(pattern, "", r"\s+"), layout))
+              .otherwise(text.str.replace(blanks(pattern, r"\s+", r"\s+"), layout)))
         for selection, pattern, layout in [
             # %Y-%m-%d
             ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9])$',
