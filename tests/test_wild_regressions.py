@@ -304,3 +304,15 @@ def test_a_series_position_handed_to_pandas_stays_a_position(tmp_path, monkeypat
     converted = convert_source(source, options=Options(data_dir=str(tmp_path))).converted_text
     assert ".iloc[-1]" in converted
     assert_same_value(run(source)["result"], run(converted)["result"])
+
+
+def test_one_true_false_value_is_numpys_as_pandas_gives_it(tmp_path):
+    # ~ of a Python True is -2 (truthy): pandas' np.True_ negates to False
+    from support import same_text
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("t.csv")
+        print(~df["ok"].iloc[0], ~df["ok"].iloc[1], (df["ok"].min(), df["ok"].iloc[0]))
+        if ~df["ok"].iloc[0]:
+            print("first flag off")
+    """, tmp_path, {"t.csv": "k,ok\na,True\nb,False\n"})

@@ -449,7 +449,8 @@ def scalar_of(column: Column, expr: Code, pytype: str | None = None, *,
         pytype = "float"
     elif pytype is None and expr.text.endswith(".sum()") and column.dtype in ("int", "float"):
         pytype = column.dtype
-    if pytype == "bool" or numpy and pytype not in ("int", "float"):
+    if pytype == "bool" or pytype is None and column.dtype == "bool" \
+            or numpy and pytype not in ("int", "float"):
         code = column.frame.code.method("select", value).method("collect").method(
             "to_series").method("to_numpy").index(0)
     elif pytype in ("int", "float"):
