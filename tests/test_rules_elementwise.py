@@ -918,3 +918,17 @@ df["code"] = df["cat"].apply(code)
 result = df
 listed = df["code"].tolist()
 """, "result", "listed", data_dir=data_dir)
+
+
+def test_map_dict_of_ints_leaving_a_value_out_is_float_once_filled(tmp_path) -> None:
+    # a value not in the dict (or missing) makes pandas' result float64, which stays float
+    # after fillna: 1.0 / -1.0, not 1 / -1
+    from support import same_text
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("hives.csv")
+        m = df["queen"].map({"Y": 1, "N": 0})
+        df["m_lbl"] = m.fillna(-1).astype(str)
+        df["m_f"] = df["queen"].map({"Y": 1}).fillna(0)
+        df.to_csv("out.csv", index=False)
+        """, tmp_path, {"hives.csv": "hive,queen\nH1,Y\nH2,N\nH3,Y\nH4,\n"})

@@ -499,3 +499,18 @@ top = d3[0].max()
 cols = d3.columns.tolist()
 '''
     differential(source, "top", "cols")
+
+
+def test_replace_with_nan_in_an_int_column_is_float_once_filled(tmp_path) -> None:
+    # pandas makes the int column float64 once a value is replaced by NaN, and it stays
+    # float after fillna: -1.0 / 8.0, not -1 / 8
+    from support import same_text
+    same_text("""
+        import numpy as np
+        import pandas as pd
+        df = pd.read_csv("hives.csv")
+        r = df["frames"].replace(0, np.nan)
+        df["r_lbl"] = r.fillna(-1).astype(str)
+        df["r_f"] = df["frames"].replace({0: np.nan}).fillna(0)
+        df.to_csv("out.csv", index=False)
+        """, tmp_path, {"hives.csv": "hive,frames\nH1,0\nH2,8\nH3,5\nH4,0\n"})

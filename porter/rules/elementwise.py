@@ -271,9 +271,17 @@ def map_(call: PandasCall, ctx: RuleContext) -> Value:
             # a number and a text (or True/False): pandas keeps each value in an object column
             raise Unsupported(f"the dict's values are of several types: it {MIXED_COLUMN} "
                               "(each value kept as it is), which no Polars type holds")
-        dtype = {bool: "bool", str: "str"}.get(kinds.pop()) if len(kinds) == 1 else None
-        return derived_column(column, column.code.method("replace_strict", mapping, default=None),
-                              name=column.name, dtype=dtype)
+        kind = kinds.pop() if len(kinds) == 1 else None
+        dtype = {bool: "bool", str: "str", int: "int"}.get(kind) if kind else None
+        result = derived_column(column, column.code.method("replace_strict", mapping,
+                                                           default=None),
+                                name=column.name, dtype=dtype)
+        if dtype == "int":
+            # float64 in pandas when a value is not in the dict (or is missing), int64 when
+            # every one is: Polars gives Int64 with nulls, which later steps read
+            # (lost_float_ints)
+            result = replace(result, float_int="map() found a value not in the dict")
+        return result
     if isinstance(function, Opaque) and isinstance(function.node, cst.Lambda):
         result = element_lambda(function.node, column, ctx)
         if call.const("na_action", None, None) == "ignore":

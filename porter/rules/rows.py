@@ -534,7 +534,13 @@ def series_replace(call: PandasCall, ctx: RuleContext) -> Value:
             args = whole
     if isinstance(args, dict) and dtype in ("int", "float"):
         args = _numbers_as(args, dtype)
-    return derived_column(column, _replacement(code, args), dtype=dtype)
+    result = derived_column(column, _replacement(code, args), dtype=dtype)
+    values = args.values() if isinstance(args, dict) else [args[1]]
+    if dtype == "int" and any(isinstance(v, float) and v != v for v in values):
+        # float64 in pandas when a value is replaced by NaN (int64 when none matched): Polars
+        # keeps Int64 with nulls, which later steps read (lost_float_ints)
+        result = replace(result, float_int="replace() put NaN in place of a value")
+    return result
 
 
 def _numbers_as(args: dict[Any, Any], dtype: str) -> dict[Any, Any]:
