@@ -18,7 +18,7 @@ import time
 
 sys.path.insert(0, str(Path(__file__).resolve().parent))
 
-from trial_cases import entries_with_cases, measure  # noqa: E402
+from trial_cases import cases_digest, entries_with_cases, measure  # noqa: E402
 
 ROOT = Path(__file__).resolve().parent.parent
 PAGE = ROOT / "docs" / "confidence.json"
@@ -41,6 +41,7 @@ def main() -> int:
             "declared": entry.confidence, "stated": result.stated, "trials": result.trials,
             "agreed": result.agreed, "skipped": result.skipped,
             "cases": len(entry.extra.get("cases", ())), "unported": len(result.unported),  # type: ignore[arg-type]
+            "cases_digest": cases_digest(entry),
         }
         rate = result.rate
         flag = "" if rate is not None and rate >= result.stated and not result.unported else "  <-"

@@ -27,6 +27,14 @@ def test_every_ported_entry_has_a_rule():
     assert not missing, f"entries without a rule: {missing}"
 
 
+def test_every_ported_entry_has_cases_to_measure_it():
+    # element.* keys are the parts of a function given to map/apply: their sites are folded
+    # into series.map's and series.apply's, whose cases measure them (mappings/elementwise.toml)
+    missing = sorted(e.key for e in TABLE if e.status == "ported" and not e.extra.get("cases")
+                     and not e.key.startswith("element."))
+    assert not missing, f"ported entries without cases (tests/trial_cases.py): {missing}"
+
+
 def test_one_rule_name_per_function():
     names: dict[str, set[str]] = {}
     for key, fn in RULES.items():

@@ -421,7 +421,6 @@ m["ws"] = m["w"].astype(str)
 ok = m.dropna()
 sub = m[m["w"].notna()]
 print(ok["w"].tolist(), sub["w"].sum(), m["ws"].tolist())
-ok.to_csv("ok.csv", index=False)
 '''
     differential(source, "m", "ok", "sub")
-    same_text(source, tmp_path)
+    same_text(source + 'ok.to_csv("ok.csv", index=False)\n', tmp_path)

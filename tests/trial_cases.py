@@ -209,5 +209,12 @@ def _one(source: str, converted: str, folder: Path) -> str | None:
     return ""
 
 
+def cases_digest(entry: MappingEntry) -> str:
+    """A fingerprint of the key's cases and stated confidence: a recorded rate is for these."""
+    import hashlib
+    text = repr((list(entry.extra.get("cases", ())), entry.confidence))  # type: ignore[arg-type]
+    return hashlib.sha256(text.encode("utf-8")).hexdigest()[:16]
+
+
 def entries_with_cases() -> list[MappingEntry]:
     return [e for e in load_table() if e.extra.get("cases")]
