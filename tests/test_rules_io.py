@@ -1202,3 +1202,27 @@ def test_blank_lines_make_no_integer_column_float(tmp_path: Path) -> None:
         df.to_csv("o.csv", index=False)
         print(df["n"].tolist())
         """, tmp_path, {"e.csv": "n\n0\n1700000000\n\n951782400\n"})
+
+
+@pytest.mark.parametrize("read", [
+    'frames = [pd.read_csv(f) for f in ["day1.csv", "day2.csv", "day3.csv"]]',
+    'frames = []\nfor f in sorted(glob.glob("day*.csv")):\n    frames.append(pd.read_csv(f))',
+])
+def test_files_read_in_a_loop_get_the_types_pandas_infers(read: str, tmp_path: Path) -> None:
+    # a ferry line's daily logs read one by one: " 5" and "+3" are numbers to pandas, an
+    # all-blank column is float64 (describe() keeps it), a file of a header only holds object
+    # columns (the sum after the concat still adds numbers); Polars' scan reads them as text
+    same_text("""
+        import glob
+        import pandas as pd
+        READ
+        allm = pd.concat(frames, ignore_index=True)
+        print(allm.dtypes)
+        print(allm.describe())
+        tot = allm.groupby("ferry")[["cars", "delta"]].sum()
+        tot.to_csv("out_tot.csv")
+        """.replace("READ", read.replace("\n", "\n        ")), tmp_path, {
+        "day1.csv": "ferry,cars,delta,kg\nF1, 5,+3,\nF2,6,-1,\n",
+        "day2.csv": "ferry,cars,delta,kg\n",
+        "day3.csv": "ferry,cars,delta,kg\nF1, 12,+0,2.5\nF2,4,+2,1\n",
+    })

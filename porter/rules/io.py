@@ -77,6 +77,13 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.reject_unknown(call, *known, positional=1)
     source = call.arg("filepath_or_buffer", 0)
     check_source(source, ctx)
+    if _paths(source) is None:
+        # a name bound at run time (a loop's or a comprehension's file, an argument): Polars
+        # infers the types of a file porter never saw, and its inference differs from pandas'
+        raise ctx.todo("the file read is only known when the script runs (a loop's or a "
+                       "comprehension's variable): pandas reads numbers written \" 5\" or "
+                       "\"+3\", an all-blank column as float and a file of a header only as "
+                       "object columns, where Polars' scan infers text; the read stays pandas'")
     if call.const("keep_default_na", None, True, kinds=(bool,)) is False:
         # pandas then reads an empty field as "" (a column of numbers with an empty field
         # becomes text), where Polars reads a missing number
