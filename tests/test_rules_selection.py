@@ -554,3 +554,24 @@ def test_names_chosen_by_a_mask_of_the_names_select_those_columns() -> None:
     # names (porter's names are a Python list, which it cannot index)
     differential(FRAME + 'result = df[df.columns[df.columns.str.startswith("g")]]\n'
                  'other = df[df.columns[df.columns.str.contains("n")]]\n', "result", "other")
+
+
+def test_columns_of_a_table_on_an_integer_key_are_integers(tmp_path) -> None:
+    # pandas labels a crosstab / unstack on an int key with the ints (10 > 9), Polars with
+    # their text ("9" > "10"): sorted, max, formats and selections by them as pandas has them
+    from support import same_text
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("kiln.csv")
+        c = pd.crosstab(df["kiln"], df["week"])
+        c = c[sorted(c.columns, reverse=True)]
+        c.to_csv("out_c.csv")
+        print(max(c.columns), list(c.columns))
+        keep = [w for w in c.columns if w > 5]
+        c[keep].to_csv("out_keep.csv")
+        for w in c.columns:
+            print(w, c[w].sum())
+        u = df.groupby(["kiln", "week"])["fires"].sum().unstack(fill_value=0)
+        u.columns = [f"wk{w:02d}" for w in u.columns]
+        u.reset_index().to_csv("out_u.csv", index=False)
+        """, tmp_path, {"kiln.csv": "kiln,week,fires\nK1,2,1\nK1,10,4\nK2,2,3\nK2,9,5\n"})

@@ -35,7 +35,8 @@ def column_by_key(frame: Frame, key: Value, ctx: RuleContext) -> Column:
             isinstance(key, Opaque) and isinstance(key.node, cst.Name)):
         if key.pytype != "str":
             ctx.lower(f"`{key.code.text}` is taken to hold one column name", 0.85)
-        return Column(emit.col(key.code), frame=frame, name=None)
+        name_code = key.code if frame.int_labels_except is None else emit.call("str", key.code)
+        return Column(emit.col(name_code), frame=frame, name=None)
     raise Unsupported(f"a key of this kind ({key.code.text}) selects by index or position")
 
 
@@ -64,7 +65,7 @@ def getitem_column(call: PandasCall, ctx: RuleContext) -> Value:
             # pandas' df[list] is a frame of those columns in the list's order, one name or
             # several; a name it lacks raises in both (ColumnNotFoundError in Polars)
             ctx.lower(f"`{key.code.text}` is taken to hold column names", 0.9)
-            code = frame.code.method("select", *frame.index, emit.col(key.code))
+            code = frame.code.method("select", *frame.index, emit.col(_by_text(frame, key.code)))
             return derive(frame, code, same_rows=True, columns=None, dtypes=frame.dtypes,
                           column_pairs=())
     return column_by_key(frame, key, ctx)
@@ -419,8 +420,23 @@ def columns(call: PandasCall, ctx: RuleContext) -> Value:
         items = ", ".join(str(int(n)) if n in frame.number_labels else emit.lit(n).text
                           for n in names)
         return Scalar(emit.atom(f"[{items}]"), pytype="list", of=frame)
-    return Scalar(data_columns(frame).method("collect_schema").method("names"),
-                  pytype="list[str]", of=frame)
+    names = data_columns(frame).method("collect_schema").method("names")
+    if frame.int_labels_except is not None:
+        # a pivot on an integer key: pandas' labels are the key's values (2024), Polars' their
+        # text ("2024"); selections by them find the text again (_by_text)
+        texts = emit.render(tuple(frame.int_labels_except))
+        return Scalar(emit.atom(f"[int(c) if c not in {texts} and c.removeprefix(\"-\")"
+                                f".isdecimal() else c for c in {names.text}]"),
+                      pytype="list", of=frame)
+    return Scalar(names, pytype="list[str]", of=frame)
+
+
+def _by_text(frame: Frame, names: Code) -> Code:
+    """Column names as Polars holds them where pandas labels a pivot's columns with the
+    integer key's values (2024 is the column "2024")."""
+    if frame.int_labels_except is None:
+        return names
+    return emit.atom(f"[str(c) for c in {names.text}]")
 
 
 @rule("frame.dtypes")
