@@ -575,3 +575,14 @@ def test_columns_of_a_table_on_an_integer_key_are_integers(tmp_path) -> None:
         u.columns = [f"wk{w:02d}" for w in u.columns]
         u.reset_index().to_csv("out_u.csv", index=False)
         """, tmp_path, {"kiln.csv": "kiln,week,fires\nK1,2,1\nK1,10,4\nK2,2,3\nK2,9,5\n"})
+
+
+def test_printed_dtypes_are_pandas_type_names(tmp_path) -> None:
+    # pandas prints int64 / str / datetime64[us], not Polars' schema
+    from support import same_text
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("kiln.csv", parse_dates=["day"])
+        print(df.dtypes)
+        print(df[["kiln", "fires"]].dtypes)
+        """, tmp_path, {"kiln.csv": "kiln,day,fires,temp\nK1,2024-01-02,1,\nK2,,3,2.5\n"})

@@ -439,17 +439,6 @@ def _by_text(frame: Frame, names: Code) -> Code:
     return emit.atom(f"[str(c) for c in {names.text}]")
 
 
-@rule("frame.dtypes")
-def dtypes(call: PandasCall, ctx: RuleContext) -> Value:
-    """df.dtypes -> .collect_schema() (no data is read) where it is only shown; the dtype names
-    are Polars'. Anywhere else (`df.dtypes[col] == "object"`, `.value_counts()`) the code reads
-    pandas' dtypes, so it keeps pandas."""
-    if not ctx.shown:
-        raise ctx.todo("the code reads pandas' dtypes (a Series of pandas types); Polars' schema "
-                       "has other names: compare with pl types on .collect_schema() instead")
-    return Scalar(frame_of(call).code.method("collect_schema"), pytype="schema")
-
-
 def row_count(frame: Frame) -> Code:
     return frame.code.method("select", emit.pl("len")).method("collect").method("item")
 

@@ -270,9 +270,12 @@ def load_payments(path):
 
 
 def main():
-    plots = load_plots("data/plots.csv")
+    plots = load_plots("data/plots.csv").collect().lazy()
     payments = load_payments("data/payments.csv").collect().lazy()
-    print(plots.collect_schema())
+    # TODO(porter): frame.dtypes: pandas prints its own type names (int64, str, datetime64[us]) and code
+    #   compares them; Polars' schema (.collect_schema()) names them otherwise: compare with pl types
+    #   instead
+    print(plots.collect().to_pandas().dtypes)
 
     paid = (
         payments

@@ -82,18 +82,25 @@ PANDAS_CSV_INTS = (
 
 VEHICLE_FEE = {"yes": 12.5, "no": 0.0}
 
-tickets = pl.scan_csv(
-    "data/tickets.csv",
-    null_values=PANDAS_NA_VALUES + ["?"],
-    schema_overrides={"ticket_no": pl.String},
-    infer_schema_length=None,
+tickets = (
+    pl.scan_csv(
+        "data/tickets.csv",
+        null_values=PANDAS_NA_VALUES + ["?"],
+        schema_overrides={"ticket_no": pl.String},
+        infer_schema_length=None,
+    )
+    .collect()
+    .lazy()
 )
 routes = pl.scan_csv(
     "data/routes.csv",
     null_values=PANDAS_NA_VALUES,
     infer_schema_length=None,
 )
-print(tickets.collect_schema())
+# TODO(porter): frame.dtypes: pandas prints its own type names (int64, str, datetime64[us]) and code
+#   compares them; Polars' schema (.collect_schema()) names them otherwise: compare with pl types
+#   instead
+print(tickets.collect().to_pandas().dtypes)
 
 tickets = tickets.rename(
     {"Sail Date": "sail_date", "Route": "route_code", "Fare Class": "fare_class"},

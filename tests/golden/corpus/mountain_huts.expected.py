@@ -132,13 +132,18 @@ PANDAS_CSV_INTS = (
 stays = (
     pl.scan_parquet("data/stays.parquet")
     .with_columns(pl.col(pl.Float32, pl.Float64).fill_nan(None))
+    .collect()
+    .lazy()
 )
 huts = (
     pl.scan_csv("data/huts.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
     .collect()
     .lazy()
 )
-print(stays.collect_schema())
+# TODO(porter): frame.dtypes: pandas prints its own type names (int64, str, datetime64[us]) and code
+#   compares them; Polars' schema (.collect_schema()) names them otherwise: compare with pl types
+#   instead
+print(stays.collect().to_pandas().dtypes)
 
 stays = (
     stays
