@@ -1226,3 +1226,19 @@ def test_files_read_in_a_loop_get_the_types_pandas_infers(read: str, tmp_path: P
         "day2.csv": "ferry,cars,delta,kg\n",
         "day3.csv": "ferry,cars,delta,kg\nF1, 12,+0,2.5\nF2,4,+2,1\n",
     })
+
+
+def test_a_header_only_file_concatenated_takes_the_other_files_types(tmp_path: Path) -> None:
+    # an orchard's empty picking day: pandas reads its columns as empty object columns, which
+    # the concat fills with the other day's numbers (the sum adds them); Polars' scan read
+    # them as text, so every column became text and the sum failed
+    same_text("""
+        import pandas as pd
+        d1 = pd.read_csv("day1.csv")
+        d2 = pd.read_csv("day2.csv")
+        allm = pd.concat([d1, d2], ignore_index=True)
+        tot = allm.groupby("row")["kg"].sum()
+        tot.to_csv("out_tot.csv")
+        allm.to_csv("out_all.csv", index=False)
+        print(allm["crate"].max(), len(d1))
+        """, tmp_path, {"day1.csv": "crate,row,kg\n", "day2.csv": "crate,row,kg\n3,A,2.5\n4,C,1\n5,A,2\n"})
