@@ -1093,3 +1093,17 @@ def test_pivot_table_observed_false_on_a_cut_keeps_unused_categories(tmp_path):
         pt4.to_csv("out_pt4.csv")
     ''', tmp_path, {"d.csv": "id,depth,site\n1,1,A\n2,3,B\n3,25,A\n"})
     assert {s.status for s in result.sites if s.key == "frame.pivot_table"} == {"todo"}
+
+
+def test_missing_true_false_value_is_nan_in_unique_and_counts(tmp_path) -> None:
+    # pandas' True/False column with a blank is an object column: its missing value is nan
+    # in unique() and in value_counts(dropna=False)'s labels, not None
+    from support import same_text
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("ferry.csv")
+        print(df["ok"].value_counts(dropna=False).to_dict())
+        print(df["ok"].value_counts().to_dict())
+        print(df["ok"].unique().tolist())
+        print(df["ok"].unique())
+        """, tmp_path, {"ferry.csv": "trip,ok\na,True\nb,False\nc,\nd,True\n"})

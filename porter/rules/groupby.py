@@ -609,7 +609,8 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
         descending = not call.const("ascending", None, False)
         kwargs: dict[str, object] = {"descending": True} if descending else {}
         counts = counts.method("sort", result_name, **kwargs, maintain_order=True)
-    result = Frame(counts, columns=(name, result_name), index=(name,), labels_intact=False)
+    result = Frame(counts, columns=(name, result_name), index=(name,), labels_intact=False,
+                   dtypes=((name, column.dtype),) if column.dtype is not None else ())
     return Column(emit.col(result_name), frame=result, name=result_name, dtype="int",
                   refs=frozenset({result_name}))
 
@@ -637,7 +638,13 @@ def unique(call: PandasCall, ctx: RuleContext) -> Value:
         # pandas' unique of numbers is a numpy array; Polars' to_numpy makes a missing value
         # nan (an integer column with one becomes float, as it is in pandas)
         return Scalar(series.method("to_numpy"), pytype="array")
-    if column.dtype in ("str", "bool", None):
+    if column.dtype == "bool":
+        # pandas' True/False with a missing value is an object array holding nan (Polars'
+        # to_numpy gives None); without one a bool array, as to_pandas gives it
+        ctx.handover = True
+        return Scalar(series.method("to_pandas").method("fillna", emit.atom('float("nan")'))
+                      .method("to_numpy"), pytype="array")
+    if column.dtype in ("str", None):
         ctx.lower("a missing value in the distinct values is None here, nan in pandas", 0.95)
         return Scalar(series.method("to_numpy"), pytype="array")
     ctx.lower(f"the distinct values of a {column.dtype} column are a Polars Series: iterating "

@@ -97,8 +97,11 @@ def series_to_dict(call: PandasCall, ctx: RuleContext) -> Value:
     if len(frame.index) == 1 and name is not None and name not in frame.index:
         key = frame.index[0]
         value = name if expr.text == emit.col(name).text else expr.method("alias", name)
-        code = frame.code.method("select", key, value).method("collect") \
-            .method("to_pandas").method("set_index", key).index(name).method("to_dict")
+        code = frame.code.method("select", key, value).method("collect").method("to_pandas")
+        if frame.dtype(key) == "bool":
+            # a missing True/False key is nan in pandas (an object column), None from Polars
+            code = code.method("fillna", {key: emit.atom('float("nan")')})
+        code = code.method("set_index", key).index(name).method("to_dict")
     elif not frame.index and frame.labels_intact:
         code = _series(column).method("to_pandas").method("to_dict")
     else:

@@ -192,13 +192,8 @@ class_counts = (
 )
 (
     class_counts
-    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
     .with_columns(
-        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
-        PANDAS_CSV_DATETIMES,
-        PANDAS_CSV_DURATIONS,
         PANDAS_CSV_INTS,
-        PANDAS_CSV_FLOATS,
         pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
         .cast(pl.String)
         .replace("", None),
