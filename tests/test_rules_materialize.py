@@ -203,3 +203,15 @@ def test_series_iloc_matches_pandas(before: str) -> None:
 def test_series_iloc_slice_stays_todo() -> None:
     check_todo('import pandas as pd\ndf = pd.DataFrame({"n": [1, 2, 3]})\nr = df["n"].iloc[1:]\n',
                "series.iloc")
+
+
+def test_values_of_nullable_integers_are_lowered() -> None:
+    # astype("Int64") with a missing value: pandas' tolist() / unique() give [1, <NA>, 3],
+    # porter's integer column gives [1.0, nan, 3.0] as a plain int64 column read with a blank
+    source = ('import pandas as pd\ndf = pd.read_csv("x.csv")\n'
+              'df["m"] = df["n"].astype("Int64")\n'
+              'a = df["m"].tolist()\nb = df["m"].unique().tolist()\n')
+    result = convert(source)
+    for key in ("series.tolist", "series.unique"):
+        site = next(s for s in result.sites if s.key == key)
+        assert site.confidence <= 0.9 and "<NA>" in site.message, key

@@ -637,6 +637,9 @@ def unique(call: PandasCall, ctx: RuleContext) -> Value:
     if column.dtype in ("int", "float"):
         # pandas' unique of numbers is a numpy array; Polars' to_numpy makes a missing value
         # nan (an integer column with one becomes float, as it is in pandas)
+        if column.dtype == "int" and ctx.nullable_ints_possible:
+            from porter.rules.materialize import NULLABLE_INT_VALUES
+            ctx.lower(NULLABLE_INT_VALUES, 0.9)
         return Scalar(series.method("to_numpy"), pytype="array")
     if column.dtype == "bool":
         # pandas' True/False with a missing value is an object array holding nan (Polars'

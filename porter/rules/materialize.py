@@ -19,6 +19,13 @@ def _series(column: Column) -> Code:
     return column.frame.code.method("select", expr).method("collect").method("to_series")
 
 
+# porter does not tell pandas' nullable integers (astype("Int64")) from plain ones
+NULLABLE_INT_VALUES = ("the script uses pandas' nullable integers, which porter does not tell from "
+                       "plain ones: with a missing value, pandas' nullable column gives ints and "
+                       "<NA> ([1, <NA>, 3]), this gives floats and nan ([1.0, nan, 3.0]) as "
+                       "a plain one does")
+
+
 @rule("series.values", "series.to_numpy", "series.tolist", "series.to_list")
 def series_values(call: PandasCall, ctx: RuleContext) -> Value:
     """Series.values / to_numpy() / tolist() -> collect the column, .to_numpy() (.tolist()).
@@ -46,6 +53,8 @@ def series_values(call: PandasCall, ctx: RuleContext) -> Value:
                            f"{_series(column).method('to_list').text}]"), pytype="list")
     if column.dtype not in ("int", "float", "bool"):
         ctx.lower("a missing text value is None here, nan in pandas", 0.95)
+    if column.dtype in ("int", None) and ctx.nullable_ints_possible:
+        ctx.lower(NULLABLE_INT_VALUES, 0.9)
     code = _series(column).method("to_numpy")
     if call.name in ("tolist", "to_list"):
         return Scalar(code.method("tolist"), pytype="list")
