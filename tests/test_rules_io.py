@@ -1242,3 +1242,15 @@ def test_a_header_only_file_concatenated_takes_the_other_files_types(tmp_path: P
         allm.to_csv("out_all.csv", index=False)
         print(allm["crate"].max(), len(d1))
         """, tmp_path, {"day1.csv": "crate,row,kg\n", "day2.csv": "crate,row,kg\n3,A,2.5\n4,C,1\n5,A,2\n"})
+
+
+@pytest.mark.parametrize("path", ['os.path.join(BASE, "d.csv")', 'BASE + "/d.csv"', 'DATA / "d.csv"',
+                                  'f"{BASE}/d.csv"'])
+def test_a_path_made_of_constants_outside_a_loop_is_still_scanned(path) -> None:
+    # only a loop's or a comprehension's file stays pandas' read; a path built once is scanned
+    # by Polars, lowered for what its inference reads otherwise
+    result = convert(f'import os\nfrom pathlib import Path\nimport pandas as pd\nBASE = "data"\n'
+                     f'DATA = Path("data")\ndf = pd.read_csv({path})\ntotal = df["v"].sum()\n')
+    site = next(s for s in result.sites if s.key == "pd.read_csv")
+    assert site.status == "converted" and site.confidence <= 0.9 and "+3" in site.message
+    assert "pl.scan_csv" in result.converted_text

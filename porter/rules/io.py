@@ -3,8 +3,11 @@
 
 from __future__ import annotations
 
+import ast
 import re
 from typing import Any
+
+import libcst as cst
 
 from porter.emit import code as emit
 from porter.emit.code import Code
@@ -54,6 +57,23 @@ def _paths(source: Value) -> object:
     return None
 
 
+def _names_a_loop_variable(call: PandasCall, ctx: RuleContext) -> bool:
+    """The path written in the call uses a name a for loop or a comprehension binds."""
+    module, node = ctx.python_module, call.node
+    if module is None or not isinstance(node, cst.Call) or not node.args:
+        return True  # not knowable here: the careful answer
+    targets = {n.id for loop in ast.walk(module) if isinstance(loop, (ast.For, ast.comprehension))
+               for n in ast.walk(loop.target) if isinstance(n, ast.Name)}
+    used: set[str] = set()
+
+    class Names(cst.CSTVisitor):
+        def visit_Name(self, name: cst.Name) -> None:
+            used.add(name.value)
+
+    node.args[0].value.visit(Names())
+    return bool(used & targets)
+
+
 @rule("pd.read_csv")
 def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     """pd.read_csv -> pl.scan_csv.
@@ -77,13 +97,18 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.reject_unknown(call, *known, positional=1)
     source = call.arg("filepath_or_buffer", 0)
     check_source(source, ctx)
-    if _paths(source) is None:
-        # a name bound at run time (a loop's or a comprehension's file, an argument): Polars
-        # infers the types of a file porter never saw, and its inference differs from pandas'
+    if _paths(source) is None and _names_a_loop_variable(call, ctx):
+        # one of many files (a loop's or a comprehension's): Polars infers the types of each
+        # file porter never saw, and its inference differs from pandas' (a day's file with an
+        # all-blank column is text to it, float64 to pandas, and the concat then differs)
         raise ctx.todo("the file read is only known when the script runs (a loop's or a "
                        "comprehension's variable): pandas reads numbers written \" 5\" or "
                        "\"+3\", an all-blank column as float and a file of a header only as "
                        "object columns, where Polars' scan infers text; the read stays pandas'")
+    if _paths(source) is None:
+        ctx.lower("the file is named when the script runs (porter never saw it): Polars infers "
+                  "its types over the whole file as pandas does, but reads numbers written "
+                  "\" 5\" or \"+3\", an all-blank column and a file of a header only as text", 0.9)
     if call.const("keep_default_na", None, True, kinds=(bool,)) is False:
         # pandas then reads an empty field as "" (a column of numbers with an empty field
         # becomes text), where Polars reads a missing number
