@@ -73,7 +73,7 @@ def render(table: MappingTable) -> str:
         "",
         "Measured: each key's own `cases` (in the table) run with pandas and as converted on",
         "random tables (missing values, ties, halves, unicode, 0 to 25 rows), the share that",
-        f"agree, from `tests/measure_confidence.py` ({len(measured)} keys measured so far);",
+        f"agree, from `tests/measure_confidence.py` ({len(measured)} keys, 40 tables a case);",
         "the suite fails when a key's rate is below the confidence porter states for it.",
         "",
         "Measured on code porter did not write: the `>>>` examples of pandas' own docstrings,",
