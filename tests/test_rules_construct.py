@@ -173,3 +173,14 @@ def test_a_literal_holding_aggregates_of_a_frame_computes_them(tmp_path):
         print(tot)
         print(pd.Series([df["fish"].min(), df["sales"].max()], name="x"))
     ''', tmp_path, {"aq.csv": "tank,fish,sales,cost\nT1,3,1.5,2.0\nT2,-1,10.25,5.0\nT3,7,9.0,5.0\n"})
+
+
+def test_a_frame_built_from_run_time_data_converts_the_same_twice() -> None:
+    # the first pass writes pl.from_pandas(pd.DataFrame(...)) laid out over several lines; a
+    # second pass keeps it as it is (it added a TODO there)
+    source = ('import numpy as np\nimport pandas as pd\ndf = pd.DataFrame(\n'
+              '    {"group_label": list("ab" * 2), "delta": np.arange(4).astype("timedelta64[ns]"), '
+              '"kg_landed": np.arange(4) * 1.5}\n)\nr = df.groupby("group_label").kg_landed.count()\n')
+    once = convert(source).converted_text
+    assert "TODO" not in once and "pl.from_pandas(" in once
+    assert convert(once).converted_text == once

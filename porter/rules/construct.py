@@ -202,12 +202,9 @@ def data_frame(call: PandasCall, ctx: RuleContext) -> Value:
         # pandas builds the frame exactly as before, Polars takes it over once
         ctx.lower("the data is only known at run time: pandas builds the frame, then it is "
                   "handed to Polars (pl.from_pandas); number column labels become text", 0.9)
-        if ctx.inside_from_pandas:  # porter's own hand-over, met again: it stays as written
-            built = Code(cst.Module([]).code_for_node(call.node)) if call.node is not None else None
-            if built is None or "\n" in built.text:
-                raise ctx.todo("a frame from data built at run time")
+        if ctx.inside_from_pandas:  # porter's own hand-over, met again: written as it was
             ctx.handover = True
-            return PandasValue(built)
+            return PandasValue(_rewritten_call("pd.DataFrame", call, ctx))
         # the values inside as porter computes them (`df["x"].max()` of a LazyFrame `df` is
         # its select ... item()), never the pandas code as written
         return Frame(emit.pl("from_pandas", _rewritten_call("pd.DataFrame", call, ctx)).method("lazy"))
