@@ -514,3 +514,17 @@ def test_replace_with_nan_in_an_int_column_is_float_once_filled(tmp_path) -> Non
         df["r_f"] = df["frames"].replace({0: np.nan}).fillna(0)
         df.to_csv("out.csv", index=False)
         """, tmp_path, {"hives.csv": "hive,frames\nH1,0\nH2,8\nH3,5\nH4,0\n"})
+
+
+def test_isin_of_another_frames_column_is_a_list_to_polars() -> None:
+    # Polars 2 deprecates is_in(<a Series of the column's own type>): the values go as one list
+    import warnings
+    with warnings.catch_warnings():
+        warnings.simplefilter("error", DeprecationWarning)
+        result = differential("""
+import pandas as pd
+loans = pd.DataFrame({"member": ["m1", "m2", None, "m4"], "days": [3, 5, 2, 9]})
+members = pd.DataFrame({"member_no": ["m1", "m4", None]})
+result = loans[~loans["member"].isin(members["member_no"])]
+""")
+    assert ".to_series().implode()" in result.converted_text

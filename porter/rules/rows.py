@@ -387,8 +387,10 @@ def isin(call: PandasCall, ctx: RuleContext) -> Value:
         if values.frame.rows == column.frame.rows:
             others = ctx.expr(values, column.frame).method("implode")
         else:
-            # another frame: its values are collected first (an expression cannot read it)
-            others = values.frame.code.method("select", values.code).method("collect").method("to_series")
+            # another frame: its values are collected first (an expression cannot read it),
+            # as one list (Polars 2 deprecates a Series of the column's own type here)
+            others = values.frame.code.method("select", values.code).method("collect") \
+                .method("to_series").method("implode")
         code = mine.method("is_in", others, nulls_equal=True)
         return derived_column(column, code, dtype="bool", others=[values] if values.frame.rows
                               == column.frame.rows else [])

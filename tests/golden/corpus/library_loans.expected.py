@@ -351,7 +351,7 @@ def main():
     unknown_members = (
         loans
         .filter(
-            ~pl.col("member_id").is_in(members.select(pl.col("member_no")).collect().to_series(), nulls_equal=True),
+            ~pl.col("member_id").is_in(members.select(pl.col("member_no")).collect().to_series().implode(), nulls_equal=True),
         )
         .collect()
         .lazy()
