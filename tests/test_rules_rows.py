@@ -528,3 +528,16 @@ members = pd.DataFrame({"member_no": ["m1", "m4", None]})
 result = loans[~loans["member"].isin(members["member_no"])]
 """)
     assert ".to_series().implode()" in result.converted_text
+
+
+@pytest.mark.parametrize("expr", ['df["ok"].replace({1: 0})', 'df["ok"].replace(1, 0)',
+                                  'df["n"].replace({True: 9, "1": 8, 2.0: 7})'])
+def test_replace_keys_of_another_kind_match_nothing(expr) -> None:
+    # pandas compares the keys with the column's own type (1 is not True, "1" is not 1); Polars
+    # cast 1 to True and replaced every True
+    differential(f"""
+import pandas as pd
+df = pd.DataFrame({{"ok": [True, False, True], "n": [1, 2, 0]}})
+df["r"] = {expr}
+result = df
+""")

@@ -8,6 +8,7 @@ from typing import Any
 
 from porter.emit import code as emit
 from porter.emit.code import Code
+from porter.rules.elementwise import keys_of_column_type
 from porter.rules import rule
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, column_of, derive, derived_column,
@@ -534,8 +535,19 @@ def series_replace(call: PandasCall, ctx: RuleContext) -> Value:
             if whole is None:
                 return derived_column(column, code, dtype=dtype)
             args = whole
-    if isinstance(args, dict) and dtype in ("int", "float"):
-        args = _numbers_as(args, dtype)
+    # (one number for another in a number column Polars compares by value already)
+    pairs = args if isinstance(args, dict) else dict([args]) \
+        if dtype in ("bool", "str") and _hashable(args[0]) else None
+    keyed = keys_of_column_type(pairs, dtype) if pairs is not None else None
+    if keyed is not None:
+        # keys of another kind match nothing in pandas (1 is not True, "1" is not 1); Polars
+        # would cast them to the column's type
+        if not keyed:
+            return derived_column(column, code, dtype=dtype)
+        args = keyed if isinstance(args, dict) else next(iter(keyed.items()))
+    if isinstance(args, dict) and dtype == "float":
+        # Polars builds the new values with the first one's type and fails on 10 beside 2.5
+        args = {k: float(v) if _number(v) and v == v else v for k, v in args.items()}
     result = derived_column(column, _replacement(code, args), dtype=dtype)
     values = args.values() if isinstance(args, dict) else [args[1]]
     if dtype == "int" and any(isinstance(v, float) and v != v for v in values):
@@ -545,18 +557,16 @@ def series_replace(call: PandasCall, ctx: RuleContext) -> Value:
     return result
 
 
-def _numbers_as(args: dict[Any, Any], dtype: str) -> dict[Any, Any]:
-    """A replacement dict's numbers as a column of `dtype` holds them: Polars builds the keys
-    (and the new values) with the first one's type and fails on a mix of 1 and 2.5; pandas
-    compares by value (2 == 2.0)."""
-    def number(x: object) -> bool:
-        return isinstance(x, (int, float)) and not isinstance(x, bool)
+def _number(x: object) -> bool:
+    return isinstance(x, (int, float)) and not isinstance(x, bool)
 
-    if dtype == "float":
-        return {float(k) if number(k) else k: float(v) if number(v) and v == v else v
-                for k, v in args.items()}
-    return {int(k) if isinstance(k, float) and k == k and k.is_integer() else k: v
-            for k, v in args.items()}
+
+def _hashable(x: object) -> bool:
+    try:
+        hash(x)
+    except TypeError:
+        return False
+    return True
 
 
 def _fractional_replacement(args: tuple[object, object] | dict[Any, Any]) -> bool:
