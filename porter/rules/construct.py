@@ -211,18 +211,6 @@ def data_frame(call: PandasCall, ctx: RuleContext) -> Value:
     raise ctx.todo("building a frame from another pandas object")
 
 
-def _data_node(call: PandasCall) -> cst.CSTNode | None:
-    """The first argument (or data=) as written."""
-    node = call.node
-    if not isinstance(node, cst.Call):
-        return None
-    for i, arg in enumerate(node.args):
-        if arg.keyword is None and i == 0 and not arg.star or \
-                arg.keyword is not None and arg.keyword.value == "data":
-            return arg.value
-    return None
-
-
 def _rewritten_call(func: str, call: PandasCall, ctx: RuleContext) -> Code:
     """`func(...)` with each argument as porter rewrote it: aggregates and sizes of the
     script's frames (now LazyFrames) computed the Polars way, pandas values handed over."""
@@ -276,7 +264,7 @@ def series(call: PandasCall, ctx: RuleContext) -> Value:
     data = call.arg("data", 0, None)
     name = call.const("name", None, None, kinds=(str,))
     if isinstance(data, Opaque) and not data.is_const and not ctx.inside_from_pandas \
-            and isinstance(_data_node(call), (cst.Dict, cst.List, cst.Tuple)):
+            and isinstance(call.first_node("data"), (cst.Dict, cst.List, cst.Tuple)):
         # values written out but computed at run time (`{"sales": df["sales"].sum(), ...}`):
         # pandas builds the Series (its labels are the keys) from the values porter computes
         ctx.handover = True

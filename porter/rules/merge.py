@@ -759,7 +759,7 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
 
 def _listed_frames(call: PandasCall, ctx: RuleContext) -> list[Frame]:
     """The frames written in the list literal passed to pd.concat."""
-    node = _objs_node(call)
+    node = call.first_node("objs")
     if not isinstance(node, (cst.List, cst.Tuple)):
         raise ctx.todo("the frames are not written out as a list, so porter cannot see them")
     frames: list[Frame] = []
@@ -776,16 +776,6 @@ def _listed_frames(call: PandasCall, ctx: RuleContext) -> list[Frame]:
     if not frames:
         raise ctx.todo("an empty list (pandas raises ValueError)")
     return frames
-
-
-def _objs_node(call: PandasCall) -> cst.BaseExpression | None:
-    if not isinstance(call.node, cst.Call):
-        return None
-    for arg in call.node.args:
-        positional = arg.keyword is None and not arg.star
-        if positional or (arg.keyword is not None and arg.keyword.value == "objs"):
-            return arg.value
-    return None
 
 
 def _drop_index(frame: Frame) -> Frame:

@@ -179,16 +179,6 @@ def series_combine_first(call: PandasCall, ctx: RuleContext) -> Value:
     return derived_column(column, code, dtype=dtype, others=[other])
 
 
-def _value_node(call: PandasCall) -> cst.BaseExpression | None:
-    """The expression written as fillna's value (the first argument or value=)."""
-    node = call.node
-    if not isinstance(node, cst.Call):
-        return None
-    positional = [a.value for a in node.args if a.keyword is None and not a.star]
-    named = [a.value for a in node.args if a.keyword is not None and a.keyword.value == "value"]
-    return named[0] if named else positional[0] if positional else None
-
-
 def _fill_each_column(frame: Frame, node: cst.Dict, ctx: RuleContext) -> Value:
     """df.fillna({"m": df["m"].median(), "d": pd.Timestamp(...), "k": "none"}): each column
     filled with its own value; a computed one only where its type is the column's (a number
@@ -259,7 +249,7 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
             and value.code.text.lstrip().startswith(("{", "[")):
         # a dict (or list) whose values are not all constants (a reduction, pd.Timestamp(...)):
         # not one fill value for the numeric columns
-        node = _value_node(call)
+        node = call.first_node("value")
         if not isinstance(node, cst.Dict):
             raise Unsupported("a dict or list of fill values that are not all constants")
         return _fill_each_column(frame, node, ctx)

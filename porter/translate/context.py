@@ -42,6 +42,16 @@ class PandasCall:
     def has(self, name: str, position: int | None = None) -> bool:
         return name in self.kwargs or (position is not None and position < len(self.args))
 
+    def first_node(self, name: str) -> cst.BaseExpression | None:
+        """The expression written as the first argument, or as `name=`, when this is a call."""
+        if not isinstance(self.node, cst.Call):
+            return None
+        for arg in self.node.args:
+            if arg.keyword is None and not arg.star or \
+                    arg.keyword is not None and arg.keyword.value == name:
+                return arg.value
+        return None
+
     def arg(self, name: str, position: int | None = None, default: Any = MISSING) -> Value | Any:
         if name in self.kwargs:
             return self.kwargs[name]
