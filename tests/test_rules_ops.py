@@ -481,3 +481,24 @@ def test_int_clip_with_float_bounds_lowers_confidence() -> None:
                      'df["r"] = df["i"].clip(0.5, 2.5)\n')
     site = next(s for s in result.sites if s.key == "series.clip")
     assert site.confidence <= 0.95 and "reaches a float bound" in site.message
+
+
+def test_round_of_a_float32_column_rounds_as_numpy() -> None:
+    # numpy (and so pandas) rounds float32 by multiplying in float32: 2.675 is 2.67499995 in
+    # float32, times 100 is 267.5 there, rounded half to even 268: 2.68. Polars' round of a
+    # Float32 multiplies in Float64 and gives 2.67. Halves of cents over a kiln's range of
+    # weights, 0-3 digits, by astype, by a stored column, by a whole frame.
+    differential("""
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({"w": np.arange(0, 3000) / 400.0 + 0.005, "v": np.arange(0, 3000) / 7.0})
+df.loc[5, "w"] = np.nan
+df["c"] = df["w"].astype("float32").round(2)
+df["w32"] = df["w"].astype("float32")
+df["d1"] = df["w32"].round(1)
+df["d3"] = (df["w32"] * 3).round(3)
+df["d0"] = df["w32"].round()
+df["v2"] = df["v"].round(2)
+whole = df[["w32", "v"]].round(2)
+result = df
+""", "result", "whole")

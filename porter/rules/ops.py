@@ -467,11 +467,92 @@ def round_(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower("a computed float on a decimal half can round the other way (floats are added "
                   "in another order)", 0.98)
     if isinstance(receiver, Column):
-        return derived_column(receiver, receiver.code.method("round", decimals), dtype=receiver.dtype)
+        if decimals > 0 and receiver.dtype in ("float", None) and "Float32" in receiver.code.text:
+            code = float32_round(receiver.code, decimals)
+        elif decimals > 0 and receiver.dtype in ("float", None) and float32_possible(ctx):
+            code = any_float_round(receiver.code, decimals)
+        else:
+            code = receiver.code.method("round", decimals)
+        return derived_column(receiver, code, dtype=receiver.dtype)
     assert isinstance(receiver, Frame)
     # pandas rounds every numeric column; integers are unchanged by it
-    code = receiver.code.method("with_columns", emit.atom("pl.selectors.float()").method("round", decimals))
+    if decimals > 0 and float32_possible(ctx):
+        code = receiver.code.method(
+            "with_columns", emit.atom("pl.selectors.by_dtype(pl.Float64)").method("round", decimals),
+            float32_round(emit.atom("pl.selectors.by_dtype(pl.Float32)"), decimals))
+    else:
+        code = receiver.code.method("with_columns", emit.atom("pl.selectors.float()").method("round", decimals))
     return derive(receiver, code, same_rows=True)
+
+
+def float32_round(code: Code, decimals: int) -> Code:
+    """numpy's round of a float32 array (what pandas' round does to a float32 column): the
+    value times 10**n in float32, rounded half to even, divided by 10**n. Polars' round of a
+    Float32 multiplies in Float64, so 2.675 (2.67499995 in float32) becomes 2.67 where numpy's
+    267.5 (the product rounded to float32) becomes 2.68. The quotient is taken in Float64 and
+    rounded once to Float32."""
+    scale = 10 ** decimals
+    scaled = emit.binop(code, "*", emit.atom(str(scale))).method("round", 0)
+    quotient = emit.binop(scaled.method("cast", emit.atom("pl.Float64")), "/", emit.atom(str(scale)))
+    # Polars divides by one value through its reciprocal: round(n) gives the exact quotient
+    return quotient.method("round", decimals).method("cast", emit.atom("pl.Float32"))
+
+
+def any_float_round(code: Code, decimals: int) -> Code:
+    """numpy's round for a column that may be Float64 or Float32 (the type is not known):
+    the value times 10**n in its own type, rounded half to even, divided by 10**n, and rounded
+    again by Polars, which gives the correctly rounded quotient in either type (it is the same
+    as .round(n) of a Float64 column)."""
+    scale = 10 ** decimals
+    scaled = emit.binop(code, "*", emit.atom(str(scale))).method("round", 0)
+    return emit.binop(scaled, "/", emit.atom(str(scale))).method("round", decimals)
+
+
+# numpy and pandas names of a 32-bit (or 16-bit) float: a script that names none of them and
+# reads only text files (CSV, JSON, Excel: float64) holds no float32 column
+_SMALL_FLOAT_TEXTS = frozenset({"float32", "Float32", "f4", "<f4", ">f4", "float16", "Float16",
+                                "f2", "<f2", ">f2"})
+_SMALL_FLOAT_NAMES = frozenset({"float32", "Float32", "float16", "Float16", "single", "half"})
+_BINARY_READERS = frozenset({"read_parquet", "read_feather", "read_orc", "read_hdf",
+                             "read_pickle", "read_stata", "read_spss", "read_sas", "read_sql",
+                             "read_sql_query", "read_sql_table"})
+
+
+def float32_possible(ctx: RuleContext) -> bool:
+    """Whether a float column of the script may be float32, where numpy rounds the product
+    in float32 (see float32_round): the script names a 32-bit float, or reads a binary file
+    whose columns are not known (a Parquet file under --data is looked at)."""
+    module = ctx.python_module
+    if module is None:
+        return True
+    for node in ast.walk(module):
+        if isinstance(node, ast.Constant) and isinstance(node.value, str) \
+                and node.value in _SMALL_FLOAT_TEXTS:
+            return True
+        if isinstance(node, ast.Attribute) and node.attr in _SMALL_FLOAT_NAMES:
+            return True
+        if isinstance(node, ast.Name) and node.id in ("float32", "float16"):
+            return True
+        if isinstance(node, ast.Call):
+            func = node.func
+            name = func.attr if isinstance(func, ast.Attribute) else func.id if isinstance(func, ast.Name) else None
+            if name in _BINARY_READERS and not _parquet_without_float32(node, name, ctx):
+                return True
+    return False
+
+
+def _parquet_without_float32(node: ast.Call, reader: str, ctx: RuleContext) -> bool:
+    """A read_parquet of a file under --data none of whose columns is a 32- or 16-bit float."""
+    root = getattr(ctx.schema_lookup, "root", None)
+    if reader != "read_parquet" or root is None or not node.args \
+            or not isinstance(node.args[0], ast.Constant) or not isinstance(node.args[0].value, str):
+        return False
+    import polars as pl
+    try:
+        schema = pl.scan_parquet(root / node.args[0].value).collect_schema()
+    except (pl.exceptions.PolarsError, OSError, ValueError):
+        return False
+    return not any(dtype in (pl.Float32, pl.Float16) for dtype in schema.values())
 
 
 @rule("series.abs")

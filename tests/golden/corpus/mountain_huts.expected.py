@@ -178,8 +178,10 @@ per_hut = (
         maintain_order="left_right",
     )
     .with_columns(
-        nights_per_bed=(pl.col("guest_nights") / pl.col("beds"))
-        .fill_nan(None)
+        nights_per_bed=(
+            ((pl.col("guest_nights") / pl.col("beds")).fill_nan(None) * 10).round(0)
+            / 10
+        )
         .round(1),
     )
     .drop("warden")
