@@ -504,19 +504,22 @@ def _verify_without_data(args: argparse.Namespace, converted: str | None) -> int
 
 def _run_trials(args: argparse.Namespace, original: str, converted: str | None, options,
                 stream: TextIO):  # type: ignore[no-untyped-def]
+    from porter.api import convert_source
+    from porter.model import Options
     from porter.verify.trials import TrialOptions, render, run_trials
+    # the conversion of the original: its text when none was given, and its sites, which a
+    # disagreement names where they stand behind the outputs that differ
+    conversion = convert_source(Path(original).read_text(encoding="utf-8"), path=original,
+                                options=Options(data_dir=args.data))
     if converted is None:
-        from porter.api import convert_source
-        from porter.model import Options
-        converted = convert_source(Path(original).read_text(encoding="utf-8"), path=original,
-                                   options=Options(data_dir=args.data)).converted_text
+        converted = conversion.converted_text
     out = Path(args.trials_out) if args.trials_out else None
     if out is not None and not out.is_dir():
         raise ConversionError("no such folder", str(out))
     trials = run_trials(original, converted, args.data,
                         TrialOptions(trials=args.trials, seed=args.seed, out=out), options,
                         progress=lambda line: print(f"porter: {line}", file=sys.stderr),
-                        converted_path=args.converted)
+                        converted_path=args.converted, sites=conversion.sites)
     print(render(trials), file=stream)
     return trials
 

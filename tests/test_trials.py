@@ -45,11 +45,22 @@ def test_the_sample_alone_does_not_show_the_broken_conversions(folder, original,
     assert verify(original, _text(broken, folder), folder).verdict == "same"
 
 
+# the conversion's site each broken conversion breaks: a disagreement names it among the sites
+# nearest the lines behind the differing output
+CULPRIT = {"broken_null_key": "groupby.agg", "broken_count": "groupby.agg",
+           "broken_mean": "groupby.agg", "broken_round": "series.round",
+           "broken_ties": "frame.sort_values", "broken_missing_first": "frame.sort_values",
+           "broken_join_order": "frame.merge"}
+
+
 @pytest.mark.parametrize("folder, original, broken, main_table", BROKEN, ids=BROKEN_IDS)
 def test_trials_catch_each_broken_conversion_and_keep_the_smallest_data(
         folder, original, broken, main_table, tmp_path):
+    sites = convert_source(original.read_text(encoding="utf-8"), path=str(original),
+                           options=Options(data_dir=str(folder))).sites
     result = run_trials(original, _text(broken, folder), folder,
-                        TrialOptions(trials=12, seed=0, shrink_runs=10, out=tmp_path))
+                        TrialOptions(trials=12, seed=0, shrink_runs=10, out=tmp_path),
+                        sites=sites)
     assert result.disagreements, [t.verdict for t in result.trials]
     found = result.disagreements[0]
     assert len(result.trials) == 12  # every trial runs
@@ -63,6 +74,10 @@ def test_trials_catch_each_broken_conversion_and_keep_the_smallest_data(
     again = verify(original, _text(broken, folder), found.folder)
     assert again.verdict in ("different", "same-unordered")
     assert found.command.endswith(f"--data {found.folder}")
+    nearest = [site.key for site in found.nearest_sites]
+    assert CULPRIT[broken.removesuffix(".py")] in nearest, nearest
+    assert len({site.line for site in found.nearest_sites}) <= 5
+    assert nearest[0] == "frame.to_csv"  # the write itself comes first
 
 
 def test_faithful_conversions_agree_on_every_trial():
@@ -105,6 +120,10 @@ def test_the_command_line_reports_trials_in_the_json(tmp_path, capsys):
     assert "DISAGREEMENT" in out and "porter verify" in out
     trials = json.loads(report.read_text())["trials"]
     assert trials["seed"] == 0 and trials["disagreements"][0]["outputs"]
+    # where to look: the group mean the broken conversion gets wrong, on line 5
+    assert "the converted sites nearest the lines behind it:" in out
+    assert (5, "groupby.agg") in {(site["line"], site["key"])
+                                  for site in trials["disagreements"][0]["nearest_sites"]}
     assert Path(trials["disagreements"][0]["folder"]).parent == tmp_path
 
 

@@ -86,5 +86,5 @@ def trial_results(results: list[FileResult], data_dir: str, options: ReviewOptio
             found[result.source] = run_trials(
                 result.source, result.converted_text, data_dir,
                 TrialOptions(trials=options.trials, seed=options.seed, out=out),
-                options.verify_options)  # type: ignore[arg-type]
+                options.verify_options, sites=result.sites)  # type: ignore[arg-type]
     return found

@@ -31,12 +31,13 @@ import random
 import re
 import shutil
 import tempfile
-from typing import Callable
+from typing import Callable, Sequence
 
-from porter.model import ConversionError
+from porter.model import ConversionError, Site
 from porter.rules.io_options import PANDAS_NA_TOKENS
 from porter.verify.api import VerifyOptions, verify
 from porter.verify.model import OutputResult, VerifyResult
+from porter.verify.origins import origins
 
 _NUMBER = re.compile(r"^\s*[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?\s*$")
 _INTEGER = re.compile(r"^\s*[+-]?\d+\s*$")
@@ -78,12 +79,16 @@ class Disagreement:
     outputs: tuple[OutputResult, ...]  # the outputs that differ there
     converted_stderr: str = ""  # when the conversion failed where the original ran
     shrink_runs: int = 0
+    # the conversion's sites on the lines behind the differing outputs, nearest first
+    # (porter.verify.origins): where to look
+    nearest_sites: tuple[Site, ...] = ()
 
     def to_json(self) -> dict[str, object]:
         return {"trial": self.trial, "folder": self.folder, "command": self.command,
                 "rows": self.rows, "outputs": [o.to_json() for o in self.outputs],
                 "converted_stderr_tail": "\n".join(self.converted_stderr.splitlines()[-20:]),
-                "shrink_runs": self.shrink_runs}
+                "shrink_runs": self.shrink_runs,
+                "nearest_sites": [s.to_json() for s in self.nearest_sites]}
 
 
 @dataclass(frozen=True)
@@ -259,8 +264,10 @@ def _kind(result: VerifyResult) -> object:
 def run_trials(original: str | Path, converted_text: str, data_dir: str | Path,
                options: TrialOptions, verify_options: VerifyOptions | None = None,
                progress: Callable[[str], None] | None = None,
-               converted_path: str | None = None) -> TrialsResult:
-    """Run both scripts on `options.trials` datasets drawn from `data_dir` (see the module)."""
+               converted_path: str | None = None, sites: Sequence[Site] = ()) -> TrialsResult:
+    """Run both scripts on `options.trials` datasets drawn from `data_dir` (see the module).
+    `sites` are the conversion's (`FileResult.sites`): each disagreement names those nearest
+    the lines behind the outputs that differ."""
     data = Path(data_dir)
     if not data.is_dir():
         raise ConversionError("no such folder (--data is the folder the script runs in)", str(data))
@@ -298,9 +305,9 @@ def run_trials(original: str | Path, converted_text: str, data_dir: str | Path,
                 + (f" ({trial.detail})" if trial.detail else ""))
             if _disagrees(result) and _kind(result) not in kinds and len(kinds) < options.kinds:
                 kinds.add(_kind(result))
-                found.append(_shrink(original, converted_text, data, tables, drawn, result,
-                                     number, options, verify_options, work, say,
-                                     converted_path))
+                shrunk = _shrink(original, converted_text, data, tables, drawn, result,
+                                 number, options, verify_options, work, say, converted_path)
+                found.append(replace(shrunk, nearest_sites=_nearest(original, shrunk, sites)))
     finally:
         shutil.rmtree(work, ignore_errors=True)
     return TrialsResult(options.seed, tuple(trials), tuple(t.path for t in tables), tuple(copied),
@@ -364,6 +371,28 @@ def _shrink(original: str | Path, converted_text: str, data: Path, tables: list[
                         differing, stderr, runs)
 
 
+def _nearest(original: str | Path, disagreement: Disagreement, sites: Sequence[Site],
+             most: int = 5) -> tuple[Site, ...]:
+    """The sites on the `most` lines nearest the differing outputs, among the statements
+    behind them, nearest first."""
+    if not sites or not disagreement.outputs:
+        return ()
+    try:
+        source = Path(original).read_text(encoding="utf-8")
+    except (OSError, UnicodeDecodeError):
+        return ()
+    distance: dict[Site, tuple[int, int]] = {}
+    for output in disagreement.outputs:
+        for origin in origins(source, output.name):
+            for site in sites:
+                if site.cell is None and origin.line <= site.line <= origin.end_line:
+                    rank = (origin.distance, -site.line)
+                    distance[site] = min(distance.get(site, rank), rank)
+    ordered = sorted(distance, key=lambda site: (distance[site], site.key))
+    lines = list(dict.fromkeys(site.line for site in ordered))[:most]
+    return tuple(site for site in ordered if site.line in lines)
+
+
 def render(trials: TrialsResult) -> str:
     """The trials on a terminal."""
     run = len(trials.trials)
@@ -387,6 +416,14 @@ def render(trials: TrialsResult) -> str:
             for row, a, b in o.comparison.first_rows[:3]:
                 lines.append(f"      row {row}: original  {a}")
                 lines.append(f"      {' ' * len(str(row))}     converted {b}")
+        if d.nearest_sites:
+            lines.append("  the converted sites nearest the lines behind it:")
+            by_line: dict[int, list[Site]] = {}
+            for site in d.nearest_sites:
+                by_line.setdefault(site.line, []).append(site)
+            lines += [f"    line {line}: " + ", ".join(
+                f"{s.key} ({s.status}, confidence {s.confidence:g})" for s in sites)
+                for line, sites in by_line.items()]
         if d.converted_stderr:
             lines.append("  the converted script failed; last lines of its stderr:")
             lines += ["    " + line for line in d.converted_stderr.splitlines()[-8:]]
