@@ -1107,3 +1107,20 @@ def test_missing_true_false_value_is_nan_in_unique_and_counts(tmp_path) -> None:
         print(df["ok"].unique().tolist())
         print(df["ok"].unique())
         """, tmp_path, {"ferry.csv": "trip,ok\na,True\nb,False\nc,\nd,True\n"})
+
+
+def test_reduction_of_a_column_pandas_made_float_by_a_missing_value(tmp_path) -> None:
+    # map() with a dict that misses a value makes pandas' column float64 (its sum prints
+    # 80.0); one that finds every value keeps int64 (150); Polars keeps Int64 either way
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("ferries.csv")
+        df["some"] = df["crossings"].map({3: 30, 5: 50})
+        df["every"] = df["crossings"].map({3: 30, 5: 50, 2: 20, 4: 40, 1: 10})
+        df["none"] = df["crossings"].map({9: 90})
+        df["gone"] = df["crossings"].replace(3, float("nan"))
+        print(df["some"].sum(), df["some"].max(), df["some"].min())
+        print(df["every"].sum(), df["every"].max(), df["every"].min())
+        print(df["none"].sum(), df["none"].max(), df["gone"].sum(), df["gone"].max())
+        print(df["crossings"].map({3: 30, 5: 50}).sum(), f"{df['some'].max()}")
+    """, tmp_path, {"ferries.csv": "ferry,crossings\nA,3\nB,5\nC,2\nD,4\nE,1\n"})

@@ -526,6 +526,8 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         # are written with the datetime's own (evaluate.py); others still differ (lowered)
         _nan_when_empty(column, how, expr, ctx)
         return replace(scalar_of(column, expr), pytype="datetime")
+    if column.float_int is not None and column.dtype == "int" and how in ("sum", "min", "max"):
+        return _float_int_reduction(column, code, expr)
     if how in NAN_WHEN_EMPTY:
         # numpy's value where Polars' is not a float: the min/max of no integers is NaN there
         # as in pandas (None from item()), a mean of a column of unknown type a numpy float
@@ -538,6 +540,22 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 NAN_WHEN_EMPTY = ("mean", "median", "min", "max", "std", "var", "quantile")
+
+
+def _float_int_reduction(column: Column, code: Code, expr: Code) -> Scalar:
+    """The sum, min or max of an integer column pandas holds as float64 when a step left a
+    value missing (a map() that found a value not in its dict, a merge that left a row
+    unmatched: column.float_int), int64 when none went missing: pandas' value is then
+    np.float64 (14.0), else np.int64 (14). Polars keeps Int64 with nulls: one missing value
+    of the column put after the result makes to_numpy() give float64 just where pandas'
+    column is float64 (the sum of only missing values is 0.0, their max NaN, as pandas')."""
+    missing = code.method("filter", code.method("is_null")).method("head", 1)
+    value = column.frame.code.method("select", expr.method("append", missing)).method(
+        "cast", emit.atom("{pl.selectors.integer(): pl.Int64}")).method("collect").method(
+        "to_series").method("to_numpy").index(0)
+    agg_column = Column(expr, frame=column.frame, name=column.name, refs=column.refs,
+                        versions=column.versions)
+    return Scalar(value, agg=agg_column)
 
 
 def _nan_when_empty(column: Column, how: str, expr: Code, ctx: RuleContext) -> Code:
