@@ -1124,3 +1124,17 @@ def test_reduction_of_a_column_pandas_made_float_by_a_missing_value(tmp_path) ->
         print(df["none"].sum(), df["none"].max(), df["gone"].sum(), df["gone"].max())
         print(df["crossings"].map({3: 30, 5: 50}).sum(), f"{df['some'].max()}")
     """, tmp_path, {"ferries.csv": "ferry,crossings\nA,3\nB,5\nC,2\nD,4\nE,1\n"})
+
+
+def test_value_counts_shows_the_zero_met_first(tmp_path) -> None:
+    # 0.0 and -0.0 are one value: pandas shows the one it met first (0.0 here); a lazy
+    # group_by kept -0.0
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("k.csv")
+        vc = df["temp"].value_counts()
+        print(vc.index.tolist())
+        vc.to_csv("vc.csv")
+        print(df["temp"].value_counts(dropna=False, normalize=True).to_dict())
+        print(df["temp"].value_counts(sort=False).to_dict())
+    """, tmp_path, {"k.csv": "kiln,temp\nA,0.0\nB,-0.0\nC,1.5\nD,-0.0\nE,0.0\nF,\n"})

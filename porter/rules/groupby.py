@@ -590,7 +590,7 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
     """s.value_counts() -> counts by value, most frequent first, ties in order of appearance.
 
     Handles: missing values not counted (dropna=True); normalize=True gives "proportion";
-    ascending=True. A Categorical whose categories porter knows (pd.cut labels, an Enum of
+    ascending=True; 0.0 and -0.0 counted as one value shown as the one met first, as pandas. A Categorical whose categories porter knows (pd.cut labels, an Enum of
     pd.Categorical's categories) lists every category, one no row holds counted 0, in the
     categories' order, which also orders ties when sorted (pandas_category_counts).
     Caveats: a category column made by astype("category") is a TODO (pandas' categories are
@@ -609,6 +609,10 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
                                      else column.code.method("alias", name))
     if call.const("dropna", None, True):
         frame = frame.method("drop_nulls")
+    if column.dtype == "float":
+        # 0.0 and -0.0 are one value: pandas shows the one it met first; a lazy group_by may
+        # keep either. Each value made the first one of its group first
+        frame = frame.method("with_columns", emit.col(name).method("first").method("over", name))
     if column.dtype == "enum":
         # pandas counts a Categorical by its categories: each once, in their order, an unused
         # one as 0; missing values (dropna=False) after them. The stable sort below then orders
