@@ -316,3 +316,36 @@ def test_one_true_false_value_is_numpys_as_pandas_gives_it(tmp_path):
         if ~df["ok"].iloc[0]:
             print("first flag off")
     """, tmp_path, {"t.csv": "k,ok\na,True\nb,False\n"})
+
+
+def test_text_made_from_columns_of_a_frame_read_in_several_chunks_then_filtered(tmp_path,
+                                                                                 monkeypatch):
+    # pl.format panicked here in Polars 2.1 ("assertion failed: i < self.len()"): the frame's
+    # text columns came out of the CSV reader in two chunks and were filtered; the template is
+    # now written as pl.concat_str, which computes the same. Invented school canteen data.
+    rows = ["2024-09-11,P003,CP-a,veg,1,nuts", "2024-02-29,P020,CE2-a,veg,1,",
+            "2024-09-02,p005,CM1-a ,meat,1,lactose", "2024-09-09,P022,CE1-b,veg,1,gluten",
+            "2024-09-05,P005,CE1-a,veg,2,nuts", "2024-09-12,P002,CM1-a,meat,1,NUTS",
+            "2023-12-31,P027,CM1-a,meat,1,", "2024-09-03,P004é,CE1-a,veg,0,NUTS",
+            "2024-09-03,P012,CM1-a,FISH,2,", "2024-03-31,P016,CP-A,meat,1,NONE",
+            "2024-03-31,P006,cm1-a,fish,1,gluten", "2024-03-31,P010,CE1-b,meat,1,LACTOSE",
+            "2024-09-11,P004,CP-a,fish,1,lactose"]
+    (tmp_path / "meals.csv").write_text(
+        "served_on,pupil_id,class_group,menu,portions,allergen\n" + "\n".join(rows) + "\n",
+        encoding="utf-8")
+    monkeypatch.chdir(tmp_path)
+    text = both("""
+        import pandas as pd
+        meals = pd.read_csv("meals.csv")
+        meals["class_group"] = meals["class_group"].str.strip().str.upper()
+        meals["second"] = meals["portions"] > 1
+        served = meals[meals["portions"] > 0]
+        absent = meals[~(meals["portions"] > 0)]
+        print(len(served), len(absent), served["pupil_id"].nunique())
+        print(served.groupby("class_group")["portions"].sum())
+        risky = served[served["menu"].isin(["meat", "fish"]) & served["allergen"].notna()]
+        notes = []
+        for _, row in risky.iterrows():
+            notes.append(f"{row['class_group']}: {row['menu']} plate, check {row['allergen']}")
+        """, "notes", data=tmp_path)
+    assert "pl.format(" not in text

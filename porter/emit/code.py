@@ -151,6 +151,25 @@ def pl(name: str, /, *args: object, **kwargs: object) -> Code:
     return call(f"pl.{name}", *args, **kwargs)
 
 
+def formatted(template: str, /, *parts: object) -> Code:
+    """What `pl.format(template, *parts)` computes (missing where a part is missing), written
+    as `pl.concat_str` of the parts and the template's texts between them. pl.format panics
+    in Polars 2.1 on a frame filtered after its columns were made in several chunks
+    ("assertion failed: i < self.len()"); concat_str computes the same and does not. (Each
+    part is one column: concat_str joins the columns a selector picks, where pl.format
+    formats each.)"""
+    texts = template.split("{}")
+    if len(texts) != len(parts) + 1:
+        raise ValueError(f"{template!r} has {len(texts) - 1} places for {len(parts)} parts")
+    pieces: list[object] = []
+    for text, part in zip(texts, [*parts, None]):
+        if text:
+            pieces.append(pl("lit", text))
+        if part is not None:
+            pieces.append(col(part) if isinstance(part, str) else part)
+    return pl("concat_str", *pieces)
+
+
 def when(cond: Code, then: object, otherwise: object | None = None) -> Code:
     code = pl("when", cond).method("then", as_expr(then))
     if otherwise is not None:

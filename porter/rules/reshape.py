@@ -191,8 +191,8 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
         on = "__columns"
         while on in names or on == value_name:
             on = f"_{on}"
-        code = code.method("with_columns", emit.pl(
-            "format", "_".join("{}" for _ in col_names), *col_names).method("alias", on))
+        code = code.method("with_columns", emit.formatted(
+            "_".join("{}" for _ in col_names), *col_names).method("alias", on))
     code = code.method("collect").method("pivot", on=on, index=index, values=value_name)
     code = code.method("sort", index)
     if fill is not None:  # a combination no row has: 0 in pandas

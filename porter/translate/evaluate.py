@@ -252,7 +252,7 @@ class Evaluator:
 
     def _eval_FormattedString(self, node: cst.FormattedString) -> Value:
         """An f-string of one value of a column (a lambda's parameter, a row's field) ->
-        pl.format: each value is written as str() writes it (element.str)."""
+        pl.concat_str (emit.formatted): each value is written as str() writes it (element.str)."""
         texts: list[str] = [""]
         values: list[Value] = []
         for part in node.parts:
@@ -273,7 +273,7 @@ class Evaluator:
             values.append(value)
             texts.append("")
         columns = [v for v in values if isinstance(v, Column) and v.element]
-        # pl.format has no escape for a brace: a literal brace would read as a placeholder
+        # a literal brace would read as a placeholder of the template (emit.formatted)
         if not values or len(columns) != len(values) or any("{" in t or "}" in t for t in texts):
             return self.generic(node)
         prefix = node.start.replace("f", "").replace("F", "")  # r"…" stays raw
@@ -287,7 +287,7 @@ class Evaluator:
             if not isinstance(written, Column) or any(x.status == "todo" for x in written.sites):
                 return self.generic(node)
             parts.append(written)
-        code = emit.pl("format", template, *(p.code for p in parts))
+        code = emit.formatted(template, *(p.code for p in parts))
         return derived_column(columns[0], code, dtype="str", others=columns[1:], name=None) \
             .with_sites(*(x for p in parts for x in p.sites))
 

@@ -131,10 +131,11 @@ row_values = (
     .select(
         dates=pl.col("served_on"),
         pupils=pl.col("pupil_id"),
-        notes=pl.format(
-            "{}: {} plate, check {}",
+        notes=pl.concat_str(
             pl.col("class_group").fill_null("nan"),
+            pl.lit(": "),
             pl.col("menu").cast(pl.String).fill_null("nan"),
+            pl.lit(" plate, check "),
             pl.col("allergen").cast(pl.String).fill_null("nan"),
         ),
     )
