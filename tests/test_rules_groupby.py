@@ -1138,3 +1138,21 @@ def test_value_counts_shows_the_zero_met_first(tmp_path) -> None:
         print(df["temp"].value_counts(dropna=False, normalize=True).to_dict())
         print(df["temp"].value_counts(sort=False).to_dict())
     """, tmp_path, {"k.csv": "kiln,temp\nA,0.0\nB,-0.0\nC,1.5\nD,-0.0\nE,0.0\nF,\n"})
+
+
+def test_min_max_in_a_loop_over_columns_are_pandas_values(tmp_path) -> None:
+    # a column named by a loop variable has no known type: its max of no values printed
+    # None where pandas prints nan (NaT for dates); numbers, dates and text as pandas'
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("b.csv", parse_dates=["day"])
+        for c in ["fare", "tips", "day", "n", "ok", "note"]:
+            print(c, df[c].max(), df[c].min(), repr(df[c].max()))
+        empty = df[df["n"] > 100]
+        for c in ["fare", "day", "n", "note"]:
+            print(c, f"{empty[c].max()}", empty[c].min())
+        for c in ["day"]:
+            print(df[c].max().strftime("%Y-%m"), (df[c].max() - df[c].min()).days)
+    """, tmp_path, {"b.csv": "boat,fare,tips,day,n,ok,note\n"
+                             "A,3.5,,2024-01-02,3,True,x\nB,2.0,,2024-03-01,5,False,\n"
+                             "C,4.25,,,1,True,y\n"})

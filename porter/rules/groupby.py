@@ -481,8 +481,11 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
     Numbers and True/False are numpy's (np.int64, np.float64, np.bool_), as pandas gives
     them: the min/max of no integers is NaN, ~ of any() is its negation, a zero max divides
     to inf.
-    Caveats: the min/max of no values of a boolean or unknown-type column is NaN in pandas
-    and None here (a NaN fill would make every result float) (0.98); the mean of a column of
+    The min/max of a column of unknown type (named by a loop variable) is pandas' value
+    through to_pandas(): nan for no values, a Timestamp for a date.
+    Caveats: the min/max of no values of a boolean column (or one of unknown type holding
+    True/False) is NaN in pandas and None here (a NaN fill would make every result float)
+    (0.98); the mean of a column of
     unknown type that holds dates is numpy's datetime64, not a pd.Timestamp (0.98).
     """
     column = call.receiver
@@ -528,6 +531,8 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         return replace(scalar_of(column, expr), pytype="datetime")
     if column.float_int is not None and column.dtype == "int" and how in ("sum", "min", "max"):
         return _float_int_reduction(column, code, expr)
+    if how in ("min", "max") and column.dtype is None:
+        return _unknown_type_extreme(column, how, expr, ctx)
     if how in NAN_WHEN_EMPTY:
         # numpy's value where Polars' is not a float: the min/max of no integers is NaN there
         # as in pandas (None from item()), a mean of a column of unknown type a numpy float
@@ -540,6 +545,20 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 NAN_WHEN_EMPTY = ("mean", "median", "min", "max", "std", "var", "quantile")
+
+
+def _unknown_type_extreme(column: Column, how: str, expr: Code, ctx: RuleContext) -> Scalar:
+    """The min or max of a column whose type porter does not know (a loop over names): the
+    value as pandas gives it, whatever the column's type, through to_pandas(): NaN for a
+    column with no values (item() gives None, printed "None" where pandas prints "nan"),
+    np.int64 / np.float64 for numbers, a pd.Timestamp for a date (NaT for none), text as is."""
+    ctx.lower(f"the {how} of a True/False column of unknown type with no values is NaN in "
+              "pandas and None here", 0.98)
+    value = column.frame.code.method("select", expr).method("collect").method(
+        "to_series").method("to_pandas").attr("iloc").index(0)
+    agg_column = Column(expr, frame=column.frame, name=column.name, refs=column.refs,
+                        versions=column.versions)
+    return Scalar(value, agg=agg_column)
 
 
 def _float_int_reduction(column: Column, code: Code, expr: Code) -> Scalar:
