@@ -36,11 +36,13 @@ def _port(before: str, fragment: str) -> pytest.ParameterSet:
 # -- ports ----------------------------------------------------------------------------------
 
 PORTS = [
-    _port('df["s"].str.lower()', 'pl.col("s").str.to_lowercase()'),
+    _port('df["s"].str.lower()',
+          'pl.col("s").str.replace_many({"İ": "i", "Σ": "σ"}).str.to_lowercase()'),
     # pandas' (pyarrow's) upper case of "ß" is "ẞ", which Polars keeps; its own is "SS"
     _port('df["s"].str.upper()',
           'pl.col("s").str.replace_all("ß", "ẞ", literal=True).str.to_uppercase()'),
-    _port('df["s"].str.title()', 'pl.col("s").str.to_titlecase()'),
+    _port('df["s"].str.title()',
+          'pl.col("s").str.replace_all("Σ", "σ", literal=True).str.to_titlecase()'),
     _port('df["s"].str.strip()', 'pl.col("s").str.strip_chars()'),
     _port('df["s"].str.strip("x ")', 'pl.col("s").str.strip_chars("x ")'),
     _port('df["s"].str.lstrip()', 'pl.col("s").str.strip_chars_start()'),
@@ -110,7 +112,7 @@ PORTS = [
     _port('df["s"].str.extract("(a)")', 'out=pl.col("s").str.extract("(a)", 1)'),
     _port('df["s"].str.capitalize()',
           'pl.col("s").str.head(1).str.replace_all("ß", "ẞ", literal=True).str.to_uppercase()'
-          ' + pl.col("s").str.slice(1).str.to_lowercase()'),
+          ' + pl.col("s").str.slice(1).str.replace_many({"İ": "i", "Σ": "σ"}).str.to_lowercase()'),
     _port('df["s"].str.count("p")', 'pl.col("s").str.count_matches("p").cast(pl.Int64)'),
     _port('df["s"].str.count("P", flags=re.I)', 'str.count_matches("(?i)P")'),
     _port('df["s"].str.findall("p+")', 'pl.col("s").str.extract_all("p+")'),
@@ -451,6 +453,19 @@ df = pd.DataFrame({"street": ["Hafenstraße", "ßweg", "FÄHRSTRAẞE", None, "M
 df["upper"] = df["street"].str.upper()
 df["cap"] = df["street"].str.capitalize()
 df["round_trip"] = df["street"].str.upper().str.lower()
+result = df
+''')
+
+
+def test_dotted_capital_i_and_final_sigma_lowered_as_pandas() -> None:
+    # pandas' (pyarrow's) kernel lowers one letter at a time: "İ" is "i" and a final "Σ" is
+    # "σ"; Polars (like Python's str.lower) writes "i̇" (two characters) and "ς"
+    differential(HEAD + '''
+df = pd.DataFrame({"street": ["İSKELE CAD", "ΟΔΟΣ", "ΣΊΣΥΦΟΣ ΣΑΣ", None, "Kadıköy İskelesi", "ς σ Σ"]})
+df["lower"] = df["street"].str.lower()
+df["cap"] = df["street"].str.capitalize()
+df["title"] = df["street"].str.title()
+df["up"] = df["street"].str.upper()
 result = df
 ''')
 

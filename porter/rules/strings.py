@@ -236,18 +236,31 @@ def case(call: PandasCall, ctx: RuleContext) -> Value:
     """s.str.lower() / upper() / title() -> str.to_lowercase() / to_uppercase() / to_titlecase().
 
     Handles: "ß" upper-cased to "ẞ", as pandas' kernel does (Polars writes "SS"): it is made
-    "ẞ" first, which Polars keeps.
+    "ẞ" first, which Polars keeps; lower() of "İ" is "i" and of a final "Σ" is "σ", as in
+    pandas (Polars writes "i̇" and "ς"): made so first (title() too for the sigma).
     Caveats: a few letters still differ: ligatures ("ﬀ"), "ŉ" and Greek letters with an iota
-    are kept by pandas and expanded by Polars, a final sigma is "σ" in pandas and "ς" in
-    Polars, "ß" first in a word is "ẞ" in pandas' title() and "Ss" in Polars' (confidence
-    below 1 in the table).
+    are kept by pandas and expanded by Polars, "İ" inside a word is "i" in pandas' title()
+    and "i̇" in Polars', "ß" first in a word is "ẞ" in pandas' title() and "Ss" in Polars',
+    letters added in Unicode 16 lower in pandas only (confidence below 1 in the table).
     """
     column = text_column(call, ctx)
     ctx.reject_unknown(call)
     text = _text(column)
     if call.name == "upper":
         text = _capital_sharp_s(text)
+    elif call.name == "lower":
+        text = _simple_lower_case(text)
+    else:  # title: "İ" first in a word stays "İ", so only the sigma is made "σ" first
+        text = text.method("replace_all", "Σ", "σ", literal=True).attr("str")
     return _string(column, text.method(_CASE[call.name]))
+
+
+def _simple_lower_case(text: Code) -> Code:
+    """`text` (a .str namespace) with the two capitals whose lower case Polars writes by
+    Unicode's full rules made lower case first, as pandas' (pyarrow's) kernel lowers them one
+    letter at a time: "İ" is "i" (Polars: "i̇", two characters) and "Σ" is "σ" at the end
+    of a word too (Polars: the final "ς")."""
+    return text.method("replace_many", {"İ": "i", "Σ": "σ"}).attr("str")
 
 
 def _capital_sharp_s(text: Code) -> Code:
@@ -592,7 +605,7 @@ def capitalize(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.reject_unknown(call)
     text = _text(column)
     first = _capital_sharp_s(text.method("head", 1).attr("str")).method("to_uppercase")
-    rest = text.method("slice", 1).attr("str").method("to_lowercase")
+    rest = _simple_lower_case(text.method("slice", 1).attr("str")).method("to_lowercase")
     return _string(column, emit.binop(first, "+", rest))
 
 

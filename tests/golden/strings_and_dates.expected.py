@@ -80,7 +80,12 @@ visits = pl.scan_csv(
     null_values=PANDAS_NA_VALUES,
     infer_schema_length=None,
 )
-visits = visits.with_columns(name=pl.col("name").str.strip_chars().str.to_titlecase())
+visits = visits.with_columns(
+    name=pl.col("name")
+    .str.strip_chars()
+    .str.replace_all("Σ", "σ", literal=True)
+    .str.to_titlecase(),
+)
 visits = visits.with_columns(
     day=pl.when(
         pl.col("day")

@@ -263,6 +263,7 @@ def load_payments(path):
     payments = payments.with_columns(
         method=pl.col("method")
         .str.strip_chars()
+        .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase()
         .replace("chq", "cheque"),
     )

@@ -256,10 +256,16 @@ def main():
         .drop("__row")
     )
     harvests = harvests.with_columns(
-        keeper=pl.col("keeper").str.strip_chars().str.to_lowercase(),
+        keeper=pl.col("keeper")
+        .str.strip_chars()
+        .str.replace_many({"İ": "i", "Σ": "σ"})
+        .str.to_lowercase(),
     )
     harvests = harvests.with_columns(
-        apiary=pl.col("apiary").str.strip_chars().str.to_lowercase(),
+        apiary=pl.col("apiary")
+        .str.strip_chars()
+        .str.replace_many({"İ": "i", "Σ": "σ"})
+        .str.to_lowercase(),
     )
     harvests = (
         harvests

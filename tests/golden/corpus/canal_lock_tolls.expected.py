@@ -267,7 +267,10 @@ def load_passages(path):
         .str.to_datetime("%Y-%m-%d %H:%M", time_unit="us", strict=False),
     )
     p = p.with_columns(
-        vessel_class=pl.col("vessel_class").str.strip_chars().str.to_lowercase(),
+        vessel_class=pl.col("vessel_class")
+        .str.strip_chars()
+        .str.replace_many({"İ": "i", "Σ": "σ"})
+        .str.to_lowercase(),
     )
     p = p.with_columns(
         lock_id=pl.col("lock_id")
@@ -337,7 +340,10 @@ def main():
     priced = (
         priced
         .with_columns(
-            paid=pl.col("paid").str.to_lowercase().fill_null(pl.lit("unknown")),
+            paid=pl.col("paid")
+            .str.replace_many({"İ": "i", "Σ": "σ"})
+            .str.to_lowercase()
+            .fill_null(pl.lit("unknown")),
         )
         .collect()
         .lazy()

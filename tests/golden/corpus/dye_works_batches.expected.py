@@ -51,6 +51,7 @@ def tidy_codes(batches):
     batches = batches.with_columns(
         dye=pl.col("dye")
         .str.strip_chars()
+        .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase()
         .str.replace_all(" hull", "", literal=True),
     )
@@ -58,7 +59,7 @@ def tidy_codes(batches):
 
 
 def flag_status(batches):
-    status = pl.col("status").str.to_lowercase()
+    status = pl.col("status").str.replace_many({"İ": "i", "Σ": "σ"}).str.to_lowercase()
     batches = batches.with_columns(
         rejected=status.str.starts_with("rejected").fill_null(False),
     )

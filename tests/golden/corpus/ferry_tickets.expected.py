@@ -118,9 +118,16 @@ tickets = tickets.with_columns(
     .str.replace_all("ß", "ẞ", literal=True)
     .str.to_uppercase(),
 )
-tickets = tickets.with_columns(fare_class=pl.col("fare_class").str.to_lowercase())
 tickets = tickets.with_columns(
-    vehicle=pl.col("vehicle").str.strip_chars().str.to_lowercase(),
+    fare_class=pl.col("fare_class")
+    .str.replace_many({"İ": "i", "Σ": "σ"})
+    .str.to_lowercase(),
+)
+tickets = tickets.with_columns(
+    vehicle=pl.col("vehicle")
+    .str.strip_chars()
+    .str.replace_many({"İ": "i", "Σ": "σ"})
+    .str.to_lowercase(),
 )
 tickets = tickets.with_columns(
     vehicle_fee=pl.col("vehicle").replace_strict(VEHICLE_FEE, default=None),

@@ -34,7 +34,10 @@ SPELLINGS = {"anchovie": "anchovy", "sardines": "sardine"}
 
 def clean_landings(landings):
     landings = landings.with_columns(
-        species=pl.col("species").str.strip_chars().str.to_lowercase(),
+        species=pl.col("species")
+        .str.strip_chars()
+        .str.replace_many({"İ": "i", "Σ": "σ"})
+        .str.to_lowercase(),
     )
     landings = landings.with_columns(
         species=pl.col("species").replace({"anchovie": "anchovy", "sardines": "sardine"}),

@@ -278,7 +278,11 @@ def load_readings(path):
     readings = readings.with_columns(
         stake=pl.col("stake").str.replace_all("ß", "ẞ", literal=True).str.to_uppercase(),
     )
-    readings = readings.with_columns(observer=pl.col("observer").str.to_titlecase())
+    readings = readings.with_columns(
+        observer=pl.col("observer")
+        .str.replace_all("Σ", "σ", literal=True)
+        .str.to_titlecase(),
+    )
     readings = readings.with_columns(snow_cm=pl.col("snow_cm").fill_null(0))
     readings = readings.unique(keep="first", maintain_order=True)
     return readings
@@ -290,7 +294,10 @@ def load_stakes(path):
         .with_columns(pandas_to_datetime(pl.col("installed"), coerce=False))
     )
     stakes = stakes.with_columns(
-        zone=pl.col("zone").str.strip_chars().str.to_lowercase(),
+        zone=pl.col("zone")
+        .str.strip_chars()
+        .str.replace_many({"İ": "i", "Σ": "σ"})
+        .str.to_lowercase(),
     )
     return stakes
 

@@ -88,7 +88,7 @@ SPAN = 4
 
 
 def clean_text(s):
-    return s.str.strip_chars().str.to_lowercase()
+    return s.str.strip_chars().str.replace_many({"İ": "i", "Σ": "σ"}).str.to_lowercase()
 
 
 log = (
@@ -125,7 +125,12 @@ dupes = (
 )
 print("readings sent twice by the logger:", dupes)
 log = log.with_columns(furnace=clean_text(pl.col("furnace")))
-log = log.with_columns(gaffer=pl.col("gaffer").str.strip_chars().str.to_titlecase())
+log = log.with_columns(
+    gaffer=pl.col("gaffer")
+    .str.strip_chars()
+    .str.replace_all("Σ", "σ", literal=True)
+    .str.to_titlecase(),
+)
 log = (
     log
     .with_columns(

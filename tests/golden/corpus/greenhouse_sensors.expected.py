@@ -118,7 +118,12 @@ log = pl.scan_csv(
 )
 print(log.select(pl.len()).collect().item())
 
-log = log.with_columns(house=pl.col("house").str.strip_chars().str.to_lowercase())
+log = log.with_columns(
+    house=pl.col("house")
+    .str.strip_chars()
+    .str.replace_many({"İ": "i", "Σ": "σ"})
+    .str.to_lowercase(),
+)
 log = log.with_columns(
     reading_time=pl.when(
         pl.col("reading_time")

@@ -249,7 +249,9 @@ def flag_loans(loans):
     )
     loans = loans.with_columns(year=pl.col("borrowed_on").dt.year())
     loans = loans.with_columns(month=pl.col("borrowed_on").dt.month().cast(pl.Int32))
-    loans = loans.with_columns(branch=pl.col("branch").str.to_lowercase())
+    loans = loans.with_columns(
+        branch=pl.col("branch").str.replace_many({"İ": "i", "Σ": "σ"}).str.to_lowercase(),
+    )
     return loans
 
 

@@ -84,7 +84,10 @@ FOG_NM = 2   # below two nautical miles the horn goes on
 
 def tidy_names(s):
     # keepers type their own names, in any case, sometimes with a leading space
-    return s.str.strip_chars().str.to_titlecase()
+    return (
+        s.str.strip_chars().str.replace_all("Σ", "σ", literal=True).str
+        .to_titlecase()
+    )
 
 
 log = pl.scan_csv(
@@ -108,7 +111,10 @@ log = log.with_columns(
 )
 log = log.with_columns(keeper=tidy_names(pl.col('keeper')))
 log = log.with_columns(
-    watch_no=pl.col("watch").str.to_lowercase().replace_strict(WATCHES, default=None),
+    watch_no=pl.col("watch")
+    .str.replace_many({"İ": "i", "Σ": "σ"})
+    .str.to_lowercase()
+    .replace_strict(WATCHES, default=None),
 )
 log = log.with_columns(
     wind_bft=pl.col("wind_bft").fill_null(0),

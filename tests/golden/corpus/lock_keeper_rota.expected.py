@@ -140,7 +140,12 @@ print(
     .to_series()
     .to_numpy()[0],
 )
-rota = rota.with_columns(keeper=pl.col("keeper").str.strip_chars().str.to_titlecase())
+rota = rota.with_columns(
+    keeper=pl.col("keeper")
+    .str.strip_chars()
+    .str.replace_all("Σ", "σ", literal=True)
+    .str.to_titlecase(),
+)
 rota = rota.with_columns(lock=pl.col("lock").str.strip_chars())
 rota = rota.with_columns(
     lock=pl.when(pl.col("lock").str.len_chars() > 0).then(pl.col("lock").str.slice(0, 1)).str.replace_all("ß", "ẞ", literal=True).str.to_uppercase() + pl.col("lock").str.slice(1),

@@ -75,12 +75,18 @@ print("lines written twice:", milk.collect().to_pandas().duplicated().sum())
 milk = milk.with_columns(
     alp=pl.col("alp")
     .str.strip_chars()
+    .str.replace_all("Σ", "σ", literal=True)
     .str.to_titlecase()
     .str.replace_all("Da", "da", literal=True),
 )
-milk = milk.with_columns(milking=pl.col("milking").str.to_lowercase())
 milk = milk.with_columns(
-    herder_key=pl.col("herder").str.strip_chars().str.to_lowercase(),
+    milking=pl.col("milking").str.replace_many({"İ": "i", "Σ": "σ"}).str.to_lowercase(),
+)
+milk = milk.with_columns(
+    herder_key=pl.col("herder")
+    .str.strip_chars()
+    .str.replace_many({"İ": "i", "Σ": "σ"})
+    .str.to_lowercase(),
 )
 # fold the accents away: é -> e, ü -> u, å -> a
 milk = (

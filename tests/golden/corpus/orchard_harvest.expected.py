@@ -220,7 +220,10 @@ print(weighings.select(pl.len()).collect().item())
 clean = (
     weighings
     .with_columns(
-        variety=pl.col("variety").str.strip_chars().str.to_lowercase(),
+        variety=pl.col("variety")
+        .str.strip_chars()
+        .str.replace_many({"İ": "i", "Σ": "σ"})
+        .str.to_lowercase(),
         grade=pl.col("grade")
         .str.strip_chars()
         .str.replace_all("ß", "ẞ", literal=True)

@@ -268,13 +268,18 @@ sales = sales.with_columns(
     .str.to_uppercase(),
 )
 sales = sales.with_columns(
-    seat_zone=pl.col("seat_zone").str.strip_chars().str.to_lowercase(),
+    seat_zone=pl.col("seat_zone")
+    .str.strip_chars()
+    .str.replace_many({"İ": "i", "Σ": "σ"})
+    .str.to_lowercase(),
 )
 sales = sales.with_columns(
     price_each=pl.col("price_each").fill_null(0.0),
     payment=pl.col("payment").fill_null(pl.lit("unknown")),
 )   # comps are free
-sales = sales.with_columns(payment=pl.col("payment").str.to_lowercase())
+sales = sales.with_columns(
+    payment=pl.col("payment").str.replace_many({"İ": "i", "Σ": "σ"}).str.to_lowercase(),
+)
 sales = (
     sales
     .with_columns(takings=pl.col("tickets") * pl.col("price_each"))

@@ -64,7 +64,10 @@ drops = (
     .unique("ticket", keep="none", maintain_order=True)
     .drop("staff")
     .with_columns(
-        material=pl.col("material").str.strip_chars().str.to_lowercase(),
+        material=pl.col("material")
+        .str.strip_chars()
+        .str.replace_many({"İ": "i", "Σ": "σ"})
+        .str.to_lowercase(),
         weight_kg=pl.col("weight_kg").cast(pl.Float64),
         bags=pl.col("bags").cast(pl.Float64),
     )

@@ -119,7 +119,11 @@ unread = (
     .to_numpy()[0]
 )
 readings = readings.drop_nulls("read_at")
-readings = readings.with_columns(observer=pl.col("observer").str.to_titlecase())
+readings = readings.with_columns(
+    observer=pl.col("observer")
+    .str.replace_all("Σ", "σ", literal=True)
+    .str.to_titlecase(),
+)
 
 # the flow was not always written down: estimate it from the level where it is missing
 estimate = pl.col("level_cm") * 0.1

@@ -234,11 +234,23 @@ HOURLY_RATE = 38   # per hour, agreed with the ferry board in 2023
 
 
 def clean_jobs(jobs):
-    jobs = jobs.with_columns(ferry=pl.col("ferry").str.strip_chars().str.to_titlecase())
     jobs = jobs.with_columns(
-        status=pl.col('status').str.strip_chars().str.to_lowercase(),
+        ferry=pl.col("ferry")
+        .str.strip_chars()
+        .str.replace_all("Σ", "σ", literal=True)
+        .str.to_titlecase(),
     )
-    jobs = jobs.with_columns(mechanic=pl.col("mechanic").str.to_titlecase())
+    jobs = jobs.with_columns(
+        status=pl.col('status')
+        .str.strip_chars()
+        .str.replace_many({"İ": "i", "Σ": "σ"})
+        .str.to_lowercase(),
+    )
+    jobs = jobs.with_columns(
+        mechanic=pl.col("mechanic")
+        .str.replace_all("Σ", "σ", literal=True)
+        .str.to_titlecase(),
+    )
     jobs = jobs.with_columns(labour=pl.col("hours") * HOURLY_RATE)
     return jobs.unique("job_id", keep="first", maintain_order=True)
 
@@ -287,7 +299,12 @@ jobs = clean_jobs(jobs)
 # one row per part fitted
 jobs = jobs.with_columns(part=pl.col("parts_used").str.split(";")).collect().lazy()
 lines = jobs.explode("part", empty_as_null=True, keep_nulls=True)
-lines = lines.with_columns(part=pl.col("part").str.strip_chars().str.to_lowercase())
+lines = lines.with_columns(
+    part=pl.col("part")
+    .str.strip_chars()
+    .str.replace_many({"İ": "i", "Σ": "σ"})
+    .str.to_lowercase(),
+)
 lines = lines.filter(pl.col("part").ne_missing(pl.lit("")))
 lines = price_parts(lines, prices)
 lines = (

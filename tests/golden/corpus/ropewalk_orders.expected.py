@@ -254,7 +254,7 @@ def to_metres(text):
 
 
 def normalise(s):
-    return s.str.strip_chars().str.to_lowercase()
+    return s.str.strip_chars().str.replace_many({"İ": "i", "Σ": "σ"}).str.to_lowercase()
 
 
 orders = (
@@ -285,10 +285,16 @@ repeats = (
 print("order numbers used twice:", repeats)
 orders = orders.with_columns(fibre=normalise(pl.col("fibre")))
 orders = orders.with_columns(
-    status=pl.col("status").str.strip_chars().str.to_lowercase(),
+    status=pl.col("status")
+    .str.strip_chars()
+    .str.replace_many({"İ": "i", "Σ": "σ"})
+    .str.to_lowercase(),
 )
 orders = orders.with_columns(
-    customer=pl.col("customer").str.strip_chars().str.to_titlecase(),
+    customer=pl.col("customer")
+    .str.strip_chars()
+    .str.replace_all("Σ", "σ", literal=True)
+    .str.to_titlecase(),
 )
 orders = (
     orders

@@ -91,7 +91,11 @@ checklist = pl.scan_csv(
 )
 checklist = (
     checklist
-    .with_columns(species=pl.col("species").str.to_lowercase())
+    .with_columns(
+        species=pl.col("species")
+        .str.replace_many({"İ": "i", "Σ": "σ"})
+        .str.to_lowercase(),
+    )
     .collect()
     .lazy()
 )
@@ -138,7 +142,12 @@ counts = counts.with_columns(
 )
 counts = (
     counts
-    .with_columns(tide=pl.col("tide").str.strip_chars().str.to_lowercase())
+    .with_columns(
+        tide=pl.col("tide")
+        .str.strip_chars()
+        .str.replace_many({"İ": "i", "Σ": "σ"})
+        .str.to_lowercase(),
+    )
     .collect()
     .lazy()
 )

@@ -265,7 +265,12 @@ lines = pl.scan_csv(
 tags = (
     tags
     .unique("harvest_id", keep="first", maintain_order=True)
-    .with_columns(species=pl.col("species").str.strip_chars().str.to_lowercase())
+    .with_columns(
+        species=pl.col("species")
+        .str.strip_chars()
+        .str.replace_many({"İ": "i", "Σ": "σ"})
+        .str.to_lowercase(),
+    )
 )
 tags = tags.with_columns(harvester=pl.col("harvester").str.strip_chars())
 

@@ -103,7 +103,10 @@ def add_rates(tests):
 
 def attach_registry(tests, registry):
     registry = registry.with_columns(
-        storage=pl.col("storage").str.strip_chars().str.to_lowercase(),
+        storage=pl.col("storage")
+        .str.strip_chars()
+        .str.replace_many({"İ": "i", "Σ": "σ"})
+        .str.to_lowercase(),
     )
     return tests.join(
         registry.rename(

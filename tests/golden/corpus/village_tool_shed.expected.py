@@ -176,9 +176,17 @@ print(
     .to_series()
     .to_numpy()[0],
 )
-loans = loans.with_columns(tool=pl.col("tool").str.strip_chars().str.to_lowercase())
 loans = loans.with_columns(
-    condition=pl.col("condition").str.to_lowercase().fill_null(pl.lit("not checked")),
+    tool=pl.col("tool")
+    .str.strip_chars()
+    .str.replace_many({"İ": "i", "Σ": "σ"})
+    .str.to_lowercase(),
+)
+loans = loans.with_columns(
+    condition=pl.col("condition")
+    .str.replace_many({"İ": "i", "Σ": "σ"})
+    .str.to_lowercase()
+    .fill_null(pl.lit("not checked")),
 )
 loans = loans.with_columns(
     out_date=pl.when(

@@ -53,7 +53,12 @@ df = df.with_columns(
     .str.replace_all("ß", "ẞ", literal=True)
     .str.to_uppercase(),
 )
-df = df.with_columns(tariff=pl.col("tariff").str.strip_chars().str.to_lowercase())
+df = df.with_columns(
+    tariff=pl.col("tariff")
+    .str.strip_chars()
+    .str.replace_many({"İ": "i", "Σ": "σ"})
+    .str.to_lowercase(),
+)
 df = df.with_columns(
     usage_m3=(pl.col("current_m3") - pl.col("previous_m3"))
     .fill_nan(None)
