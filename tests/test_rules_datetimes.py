@@ -1078,3 +1078,23 @@ def test_dt_floor_matches_pandas(freq: str) -> None:
 
 def test_dt_floor_with_options_stays_todo() -> None:
     check_todo(CALENDAR_FRAME + 'result = df["t"].dt.floor("15min", ambiguous="NaT")\n', "series.dt.floor")
+
+
+def test_a_date_moved_by_a_duration_column_stays_a_date(tmp_path) -> None:
+    # d + pd.to_timedelta(days, unit="D") is a datetime column in pandas: compared with a
+    # date written as text, formatted, its parts read; the conversion had lost its type (the
+    # text compared as text, which Polars refuses)
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("trips.csv")
+        df["d"] = pd.to_datetime(df["d"])
+        df["due"] = df["d"] + pd.to_timedelta(df["days"], unit="D")
+        df["early"] = pd.to_timedelta(df["days"], unit="h") + df["d"]
+        df["back"] = df["d"] - pd.to_timedelta(df["days"], unit="D")
+        df["due3"] = df["d"] + pd.to_timedelta(3, unit="D")
+        late = df[df["due"] > "2024-02-10"]
+        print(late["trip"].tolist(), df[df["early"] <= "2024-02-27 01:00"]["trip"].tolist())
+        print(df[df["back"] < "2024-02-01"]["trip"].tolist(), (df["due3"] > "2024-03-02").tolist())
+        late.to_csv("late.csv", index=False)
+    """, tmp_path, {"trips.csv": "trip,d,days\nA,2024-01-30,3\nB,2024-02-27,1\nC,2024-03-01,2\n"
+                                 "D,2024-12-31,0\n"}, with_data=False)

@@ -922,7 +922,7 @@ def _column_timedelta(call: PandasCall, column: Column, ctx: RuleContext) -> Col
                   "nanoseconds (1/3 day is 7:59:59.999999997), Polars in microseconds (8:00:00)",
                   0.95)
     # NaN and None are both missing (NaT) in pandas; pl.duration gives null for both
-    return derived_column(column, emit.pl("duration", **{keyword: column.code}), dtype=None,
+    return derived_column(column, emit.pl("duration", **{keyword: column.code}), dtype="duration",
                           name=column.name)
 
 

@@ -148,6 +148,9 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
             dtype = "str"
         elif op == "-" and ltype == rtype == "datetime" or op in ("+", "-") and ltype == rtype == "duration":
             dtype = "duration"
+        elif op in ("+", "-") and ltype == "datetime" and rtype == "duration" \
+                or op == "+" and ltype == "duration" and rtype == "datetime":
+            dtype = "datetime"  # a date moved by a duration column (pd.to_timedelta(days, unit="D"))
         if op == "**":
             code = _power(left, right, lcode, rcode, ctx).method("fill_nan", None)
             ctx.lower("a negative base to a fractional power is NaN in both (made missing here)", 0.98)
