@@ -1098,3 +1098,20 @@ def test_a_date_moved_by_a_duration_column_stays_a_date(tmp_path) -> None:
         late.to_csv("late.csv", index=False)
     """, tmp_path, {"trips.csv": "trip,d,days\nA,2024-01-30,3\nB,2024-02-27,1\nC,2024-03-01,2\n"
                                  "D,2024-12-31,0\n"}, with_data=False)
+
+
+def test_strftime_of_a_tables_dates_handed_to_pandas(tmp_path) -> None:
+    # list(wide.index.strftime(...)) of a table indexed by its dates goes to pandas (list()
+    # has no rule): the formatted dates were looked up under the key's name, which they had
+    # taken (KeyError); pandas' Index.strftime is values without labels of their own
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("h.csv", parse_dates=["d"])
+        wide = df.groupby(["d", "orchard"])["kg"].sum().unstack()
+        print(list(wide.index.strftime("%Y-%m")), list(wide.index.month))
+        wide["label"] = wide.index.strftime("%Y-%m")
+        wide[wide.index.month > 1].to_csv("later.csv")
+        wide.index = wide.index.strftime("%Y-%m-%d")
+        wide.to_csv("wide.csv")
+    """, tmp_path, {"h.csv": "orchard,d,kg\nN,2024-01-15,3\nS,2024-01-20,5\nN,2024-02-03,2\n"
+                             "S,2024-03-09,4\nN,2024-03-10,1\n"})

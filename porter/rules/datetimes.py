@@ -13,9 +13,23 @@ import re
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.translate.context import PandasCall, RuleContext, accessor_column, derived_column
+from porter.translate.context import PandasCall, RuleContext, derived_column
+from porter.translate.context import accessor_column as _accessor_column
 from porter.translate import handover
-from porter.translate.values import Column, Opaque, Scalar, Value, fresh_token
+from porter.translate.values import Accessor, Column, Opaque, Scalar, Value, fresh_token
+
+
+def accessor_column(call: PandasCall) -> Column:
+    """The column under `s.dt`. Under a table's own dates (`wide.index.strftime(...)`, see
+    selection.frame_index) it is the index key's values: what the rule makes of them is an
+    Index in pandas, values without labels of their own, so the result is not indexed by the
+    key it replaces (handed to pandas it would be looked up under the key's name, which the
+    new values took)."""
+    column = _accessor_column(call)
+    accessor = call.receiver
+    if isinstance(accessor, Accessor) and accessor.index_of is not None and column.frame.index:
+        return replace(column, frame=replace(column.frame, index=()))
+    return column
 
 
 def _dt(column: Column) -> Code:
