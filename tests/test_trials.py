@@ -153,3 +153,11 @@ def test_trial_folders_inside_the_data_folder_are_neither_copied_nor_varied(tmp_
     again = run_trials(data / "landings.py", _text("broken_mean.py"), data, options)
     assert again.varied == ("data/landings.csv",)
     assert not any("porter-trial-" in c for c in again.copied)
+
+
+def test_without_hypothesis_the_trials_say_what_to_install(monkeypatch):
+    import sys
+    from porter.model import ConversionError
+    monkeypatch.setitem(sys.modules, "hypothesis", None)  # as if not installed
+    with pytest.raises(ConversionError, match=r"pip install 'porter\[trials\]'"):
+        run_trials(ORIGINAL, _text("broken_mean.py"), FIXTURES, TrialOptions(trials=2))

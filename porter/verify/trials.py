@@ -2,7 +2,8 @@
 
 A sample that verifies "same" can be friendly: no missing value in a group key, no tie in a
 sort key, no empty table. `porter verify --trials K` therefore runs both scripts again on K
-datasets made from the sample in `--data`, seeded and reproducible (`--seed`):
+datasets made from the sample in `--data`, drawn by hypothesis strategies, seeded and
+reproducible (`--seed`; hypothesis is an extra, imported only here):
 
 - every CSV file keeps its lines before the data (comments, the header) and its separator;
   its data rows are drawn again: whole rows of the sample (so related cells stay together)
@@ -27,7 +28,6 @@ import csv
 from dataclasses import dataclass, field, replace
 import io
 from pathlib import Path
-import random
 import re
 import shutil
 import tempfile
@@ -195,25 +195,59 @@ def _edges(present: list[str], kind: str) -> list[str]:
 
 # --- drawing a trial ------------------------------------------------------------------------
 
-def _draw(table: _Table, rnd: random.Random, max_rows: int, missing: float,
-          awkward: float) -> list[list[str]]:
-    roll = rnd.random()  # now and then a table of 0, 1 or 2 rows
-    count = 0 if roll < 0.06 else 1 if roll < 0.14 else 2 if roll < 0.22 else \
-        rnd.randint(3, max_rows)
-    rows = []
-    for _ in range(count):
-        if rnd.random() < 0.5:
-            row = list(rnd.choice(table.rows))
+def _datasets(tables: list[_Table], options: TrialOptions) -> list[dict[str, list[list[str]]]]:
+    """`options.trials` datasets drawn by hypothesis, seeded: the same seed (and hypothesis
+    version) draws the same ones. Each holds, for every varied table, its rows."""
+    try:
+        from hypothesis import HealthCheck, Phase, given, seed, settings
+        from hypothesis import strategies as st
+    except ImportError as exc:  # an extra: pip install "porter[trials]"
+        raise ConversionError("the randomised trials draw their data with hypothesis, which is "
+                              "not installed: pip install 'porter[trials]'") from exc
+
+    @st.composite
+    def row(draw, table: _Table, missing: int, awkward: int) -> list[str]:
+        # a whole row of the sample (its cells belong together) or one cell from each column
+        if draw(st.booleans()):
+            cells = list(draw(st.sampled_from(table.rows)))
         else:
-            row = [rnd.choice(col.cells) for col in table.columns]
-        for i, col in enumerate(table.columns):
-            roll = rnd.random()
+            cells = [draw(st.sampled_from(column.cells)) for column in table.columns]
+        for i, column in enumerate(table.columns):
+            roll = draw(st.integers(0, 99))
             if roll < missing:
-                row[i] = ""
-            elif roll < missing + awkward and col.edges:
-                row[i] = rnd.choice(col.edges)
-        rows.append(row)
-    return rows
+                cells[i] = ""
+            elif roll < missing + awkward and column.edges:
+                cells[i] = draw(st.sampled_from(column.edges))
+        return cells
+
+    @st.composite
+    def dataset(draw) -> dict[str, list[list[str]]]:
+        # per dataset: how often a cell is empty and how often it is awkward (percent)
+        missing = draw(st.sampled_from([0, 10, 30]))
+        awkward = draw(st.sampled_from([0, 10, 25]))
+        drawn = {}
+        for table in tables:  # 0 to max_rows rows; hypothesis favours the ends: 0, 1, max_rows
+            size = draw(st.integers(0, options.max_rows))
+            drawn[table.path] = draw(st.lists(row(table, missing, awkward),
+                                              min_size=size, max_size=size))
+        return drawn
+
+    found: list[dict[str, list[list[str]]]] = []
+    seen: set[str] = set()
+
+    def keep(drawn: dict[str, list[list[str]]]) -> None:
+        if repr(drawn) not in seen and len(found) < options.trials:
+            seen.add(repr(drawn))
+            found.append(drawn)
+
+    for attempt in range(8):  # a dataset drawn twice counts once: draw again for the rest
+        if len(found) >= options.trials:
+            break
+        run = seed(options.seed * 1000 + attempt)(settings(
+            max_examples=options.trials, phases=[Phase.generate], database=None,
+            deadline=None, suppress_health_check=list(HealthCheck))(given(dataset())(keep)))
+        run()
+    return found
 
 
 def _write_table(table: _Table, rows: list[list[str]], folder: Path) -> None:
@@ -287,11 +321,7 @@ def run_trials(original: str | Path, converted_text: str, data_dir: str | Path,
     kinds: set[object] = set()
     work = Path(tempfile.mkdtemp(prefix="porter-trials-"))
     try:
-        for number in range(1, options.trials + 1):
-            rnd = random.Random(f"{options.seed}:{number}")
-            missing = rnd.choice([0.0, 0.0, 0.1, 0.3])
-            awkward = rnd.choice([0.0, 0.1, 0.25])
-            drawn = {t.path: _draw(t, rnd, options.max_rows, missing, awkward) for t in tables}
+        for number, drawn in enumerate(_datasets(tables, options), start=1):
             folder = _dataset(data, tables, drawn, work / f"trial-{number}")
             result = verify(original, converted_text, folder, verify_options)
             shutil.rmtree(folder, ignore_errors=True)
