@@ -109,6 +109,10 @@ def build_parser() -> argparse.ArgumentParser:
                         help="the folder the script runs in (copied; never written); without "
                              "it, porter makes the CSV files the script reads from the script "
                              "itself and runs randomised trials on them")
+    verify.add_argument("--synthesize", action="store_true",
+                        help="make the input files from the script even with --data: their "
+                             "columns, types and values then come from the first --sample-rows "
+                             "rows of DIR's files")
     _verify_options(verify)
     _trial_options(verify)
     _debug_option(verify)
@@ -180,6 +184,9 @@ def _trial_options(parser: argparse.ArgumentParser) -> None:
                         help="the trials' seed: the same seed draws the same datasets (default 0)")
     trials.add_argument("--trials-out", metavar="DIR", default=None,
                         help="where the smallest disagreeing dataset is written (default: here)")
+    trials.add_argument("--sample-rows", type=_count, default=10_000, metavar="N",
+                        help="rows of each data file the trials draw from, and --synthesize "
+                             "reads types from: the first N (default 10000)")
 
 
 def _verify_options(parser: argparse.ArgumentParser, outputs: bool = True) -> None:
@@ -277,7 +284,7 @@ def main(argv: list[str] | None = None) -> int:
                 if not path.is_file():
                     raise ConversionError("no such file", args.converted)
                 converted = path.read_text(encoding="utf-8")
-            if args.data is None:
+            if args.data is None or args.synthesize:
                 return _verify_without_data(args, converted)
             return run_verify(args, args.original, converted,
                               args.converted or "(converted in memory)", sys.stdout)
@@ -463,7 +470,8 @@ def _run_verify(args: argparse.Namespace, original: str, converted: str | None, 
 
 
 def _verify_without_data(args: argparse.Namespace, converted: str | None) -> int:
-    """`porter verify SCRIPT` with no --data: the inputs made from the script, then trials."""
+    """`porter verify SCRIPT` with no --data (or with --synthesize): the inputs made from the
+    script (their types from --data's files when given), then trials."""
     import tempfile
     from porter.api import convert_source
     from porter.model import Options
@@ -471,17 +479,24 @@ def _verify_without_data(args: argparse.Namespace, converted: str | None) -> int
     original = Path(args.original)
     if not original.is_file():
         raise ConversionError("no such script", args.original)
+    types_from = Path(args.data) if args.data is not None else None
+    if types_from is not None and not types_from.is_dir():
+        raise ConversionError("no such folder (--data is the folder the script runs in)",
+                              args.data)
     text = original.read_text(encoding="utf-8")
-    if converted is None:  # the conversion `porter convert` gives without --data
-        converted = convert_source(text, path=str(original), options=Options()).converted_text
+    if converted is None:  # the conversion `porter convert` gives (with --data when given)
+        converted = convert_source(text, path=str(original), options=Options(
+            data_dir=args.data)).converted_text
     out = Path(args.trials_out) if args.trials_out else Path.cwd()
     if not out.is_dir():
         raise ConversionError("no such folder", str(out))
     with tempfile.TemporaryDirectory(prefix="porter-sample-") as work:
         sample = Path(work) / "sample"
-        sizes = synthesize_checked(original, sample, seed=args.seed)
+        sizes = synthesize_checked(original, sample, seed=args.seed, types_from=types_from,
+                                   sample_rows=args.sample_rows)
         made = ", ".join(f"{path} ({rows} rows)" for path, rows in sizes.items())
-        print(f"porter: no --data: made {made} from the script", file=sys.stderr)
+        how = f"the types of {args.data}'s files" if types_from is not None else "no --data"
+        print(f"porter: {how}: made {made} from the script", file=sys.stderr)
         args.data = str(sample)
         if not args.trials:
             args.trials = 10
@@ -517,7 +532,8 @@ def _run_trials(args: argparse.Namespace, original: str, converted: str | None, 
     if out is not None and not out.is_dir():
         raise ConversionError("no such folder", str(out))
     trials = run_trials(original, converted, args.data,
-                        TrialOptions(trials=args.trials, seed=args.seed, out=out), options,
+                        TrialOptions(trials=args.trials, seed=args.seed, out=out,
+                                     sample_rows=getattr(args, "sample_rows", 10_000)), options,
                         progress=lambda line: print(f"porter: {line}", file=sys.stderr),
                         converted_path=args.converted, sites=conversion.sites)
     print(render(trials), file=stream)

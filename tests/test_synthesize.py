@@ -158,3 +158,43 @@ def test_a_column_in_the_wrong_file_after_a_merge_is_moved_until_the_script_runs
     header = (tmp_path / "made" / "data" / "sales.csv").read_text().splitlines()[0]
     assert "capacity" in header.split(",")  # the halls file could not give it: moved
     assert verify(script, script.read_text(), tmp_path / "made").original.exit_code == 0
+
+
+def test_with_data_the_columns_types_and_values_come_from_its_files(tmp_path):
+    # --synthesize --data: the file's own columns (all of them, in its order), types and values
+    # from its first rows; a column given to the script's own function is typed by its values
+    # (without --data porter cannot tell it and asks for --data). Invented kiln log.
+    data = tmp_path / "data"
+    (data / "data").mkdir(parents=True)
+    (data / "data" / "kilns.csv").write_text(
+        "kiln,fired_on,hours,pieces,note\n"
+        "K1,2024-03-01,11.5,40,glaze ok\nK2,2024-03-02,9.25,,crack\nK1,2024-03-04,12,38,\n"
+        + "K3,2024-03-09,10.5,99,late\n" * 50, encoding="utf-8")
+    source = textwrap.dedent('''
+        import pandas as pd
+        kilns = pd.read_csv("data/kilns.csv")
+        kilns["n"] = kilns["note"].apply(len)
+        kilns.groupby("kiln")["hours"].sum().to_csv("hours.csv")
+    ''')
+    with pytest.raises(SynthesisError):
+        synthesize(source, tmp_path / "without")
+    sizes = synthesize(source, tmp_path / "made", types_from=data, sample_rows=3)
+    with (tmp_path / "made" / "data" / "kilns.csv").open(encoding="utf-8") as handle:
+        rows = list(csv.DictReader(handle))
+    assert len(rows) == sizes["data/kilns.csv"]
+    assert list(rows[0]) == ["kiln", "fired_on", "hours", "pieces", "note"]
+    values = {name: {r[name] for r in rows} - {""} for name in rows[0]}
+    assert {"K1", "K2"} <= values["kiln"] and "K3" not in values["kiln"]  # the first 3 rows only
+    assert all(v.lstrip("-").isdigit() for v in values["pieces"])  # whole numbers
+    assert all(float(v) == float(v) for v in values["hours"])
+    assert all(len(v) == 10 and v[4] == "-" for v in values["fired_on"])  # dates as the file has
+
+
+def test_synthesize_with_data_on_the_command_line(tmp_path, capsys, monkeypatch):
+    monkeypatch.chdir(tmp_path)
+    harvest = FIXTURES / "harvest"
+    code = main(["verify", str(harvest / "harvest.py"), str(harvest / "broken_join.py"),
+                 "--data", str(harvest), "--synthesize", "--sample-rows", "5", "--trials", "1"])
+    captured = capsys.readouterr()
+    assert code == 1
+    assert f"the types of {harvest}'s files: made data/deliveries.csv" in captured.err

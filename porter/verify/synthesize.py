@@ -40,6 +40,7 @@ import tempfile
 
 from porter.analysis.pandas_names import FRAME
 from porter.model import ConversionError
+from porter.rules.io_options import PANDAS_NA_TOKENS
 
 _READERS = {"read_csv", "read_table"}
 _OTHER_READERS = {"read_parquet", "read_excel", "read_json", "read_sql", "read_sql_query",
@@ -58,6 +59,7 @@ class _Column:
     kind: str | None = None  # "text", "number", "int", "date", "key"
     date_format: str = "%Y-%m-%d"
     literals: set[object] = field(default_factory=set)
+    seen: list[str] = field(default_factory=list)  # values read from --data's file, if given
 
 
 @dataclass
@@ -77,13 +79,16 @@ class SynthesisError(ConversionError):
 
 
 def synthesize(source: str, folder: Path, seed: int = 0, rows: int = 24,
-               path: str | None = None, placement: dict[str, int] | None = None
-               ) -> dict[str, int]:
+               path: str | None = None, placement: dict[str, int] | None = None,
+               types_from: Path | None = None, sample_rows: int = 1000) -> dict[str, int]:
     """Write the files `source` (the script at `path`) reads into `folder` (relative paths
     kept); rows per file. `placement` picks, for a column read on a frame made from several
-    files (after a merge), which of those files holds it (by its number among them)."""
+    files (after a merge), which of those files holds it (by its number among them).
+    `types_from`: the script's data folder (`--synthesize --data`): each file found there
+    gives its columns, their types and some of their values, from its first `sample_rows`
+    rows; what the script's code says (its literals) is kept."""
     try:
-        reads = _find_reads(source, placement or {})
+        reads = _find_reads(source, placement or {}, types_from, sample_rows)
     except SynthesisError as exc:
         exc.path = path
         raise
@@ -109,7 +114,8 @@ _MISSING_COLUMN = re.compile(
 
 
 def synthesize_checked(script: Path, folder: Path, seed: int = 0, attempts: int = 6,
-                       timeout: float = 120.0) -> dict[str, int]:
+                       timeout: float = 120.0, types_from: Path | None = None,
+                       sample_rows: int = 1000) -> dict[str, int]:
     """synthesize(), then run the original script on what was made: where it stops on a
     column missing from a frame made from several files (porter put the column in the other
     file), move the column and make the files again, a few times at most."""
@@ -118,7 +124,8 @@ def synthesize_checked(script: Path, folder: Path, seed: int = 0, attempts: int 
     for _ in range(attempts):
         if folder.exists():
             shutil.rmtree(folder)
-        sizes = synthesize(source, folder, seed=seed, path=str(script), placement=placement)
+        sizes = synthesize(source, folder, seed=seed, path=str(script), placement=placement,
+                           types_from=types_from, sample_rows=sample_rows)
         with tempfile.TemporaryDirectory(prefix="porter-check-") as work:
             shutil.copytree(folder, work, dirs_exist_ok=True)
             shutil.copy(script, Path(work) / script.name)
@@ -137,7 +144,8 @@ def synthesize_checked(script: Path, folder: Path, seed: int = 0, attempts: int 
 
 # --- reading the script ------------------------------------------------------------------------
 
-def _find_reads(source: str, placement: dict[str, int]) -> list[_Read]:
+def _find_reads(source: str, placement: dict[str, int], types_from: Path | None = None,
+                sample_rows: int = 1000) -> list[_Read]:
     try:
         tree = ast.parse(source)
     except SyntaxError as exc:
@@ -178,6 +186,9 @@ def _find_reads(source: str, placement: dict[str, int]) -> list[_Read]:
                              "Give the script's folder with --data")
     _follow(tree, sources)
     _columns(tree, parents, reads, sources, placement)
+    if types_from is not None:
+        for read in reads.values():
+            _from_data(read, types_from, sample_rows)
     untyped = [f"{c!r} of {r.path}" for r in reads.values() for c, col in r.columns.items()
                if col.kind == "needed"]
     for read in reads.values():  # used only as it is (selected, counted, written): any text
@@ -193,6 +204,58 @@ def _find_reads(source: str, placement: dict[str, int]) -> list[_Read]:
             raise SynthesisError(f"porter cannot tell which columns {read.path} has. Give the "
                                  "script's folder with --data")
     return list(reads.values())
+
+
+_ISO_DAY = re.compile(r"^\d{4}-\d{2}-\d{2}$")
+_ISO_TIME = re.compile(r"^\d{4}-\d{2}-\d{2}([ T])\d{2}:\d{2}(:\d{2})?$")
+_INT_TEXT = re.compile(r"^[+-]?\d+$")
+_NUMBER_TEXT = re.compile(r"^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$")
+
+
+def _from_data(read: _Read, data: Path, sample_rows: int) -> None:
+    """The file's columns, types and values from its first `sample_rows` rows in `data`
+    (`--synthesize --data`): the columns in the file's order (all of them, not only those
+    the script names), each typed by what it holds."""
+    target = data / read.path
+    if not target.is_file():
+        return
+    try:
+        with target.open(encoding="utf-8-sig", newline="") as handle:
+            reader = csv.reader(handle, delimiter=read.separator)
+            header = next(reader, None) if read.header else read.fixed
+            rows = [row for _, row in zip(range(sample_rows), reader)]
+    except (OSError, UnicodeDecodeError, csv.Error):
+        return
+    if not header:
+        return
+    used = read.columns
+    read.columns = {}
+    for i, name in enumerate(header):
+        column = used.get(name, _Column())
+        values = [row[i].strip() for row in rows if i < len(row)]
+        present = [v for v in values if v and v not in _NA_TEXT]
+        column.seen = sorted(set(present))[:20]
+        if not present:
+            column.kind = column.kind if column.kind not in (None, "needed") else "text"
+        elif all(_INT_TEXT.match(v) for v in present):
+            column.kind = "int" if column.kind != "merge" else "merge"
+        elif all(_NUMBER_TEXT.match(v) for v in present):
+            column.kind = "number"
+        elif all(_ISO_DAY.match(v) for v in present):
+            column.kind, column.date_format = "date", "%Y-%m-%d"
+        elif all(_ISO_TIME.match(v) for v in present):
+            match = _ISO_TIME.match(present[0])
+            column.kind = "date"
+            column.date_format = "%Y-%m-%d" + match.group(1) + "%H:%M" \
+                + (":%S" if match.group(2) else "")  # type: ignore[union-attr]
+        elif column.kind not in ("key", "merge", "text", "date"):
+            column.kind = "text"  # what the code took for a number holds text
+        read.columns[name] = column
+    for name, column in used.items():  # named by the script, not in the file: as inferred
+        read.columns.setdefault(name, column)
+
+
+_NA_TEXT = set(PANDAS_NA_TOKENS)  # what pandas' read_csv reads as a missing value
 
 
 def _string_constants(tree: ast.Module) -> dict[str, object]:
@@ -659,6 +722,20 @@ def _table(read: _Read, rnd: random.Random, rows: int, merge_pool: list[str]) ->
 
 
 def _pool(column: _Column, rnd: random.Random, merge_pool: list[str]) -> list[str]:
+    if column.seen:  # values of the user's own file, the script's literals, awkward ones
+        seen = list(column.seen)
+        literals = [str(v) for v in column.literals if not isinstance(v, bool)]
+        awkward: list[str] = []
+        if column.kind == "int":
+            awkward = ["0", "-1"]
+        elif column.kind == "number":
+            awkward = ["0.0", "-0.0", "2.5", "0.125"]
+        elif column.kind in ("text", "key", "merge"):
+            awkward = [seen[0].upper(), seen[0].lower(), seen[0] + "é"]
+        elif column.kind == "date":  # the ends of months and years, in the file's layout
+            awkward = [dt.datetime(*day).strftime(column.date_format)
+                       for day in ((2023, 12, 31), (2024, 1, 1), (2024, 2, 29))]
+        return seen + literals + awkward
     if column.kind == "merge":
         return rnd.sample(merge_pool, 6)  # partly the other file's keys, partly not
     if column.kind == "key":

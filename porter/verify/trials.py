@@ -47,7 +47,6 @@ _ISO_DATE = re.compile(r"^(\d{4})-(\d{2})-(\d{2})(.*)$")
 _OTHER_DATE = re.compile(r"^\s*\d{1,4}[-/.]\d{1,2}[-/.]\d{1,4}([ T]\d{1,2}:\d{2}.*)?\s*$")
 _SEPARATORS = (",", ";", "\t", "|")
 _MISSING = set(PANDAS_NA_TOKENS)  # text pandas' read_csv reads as a missing value
-_SAMPLE_ROWS = 10_000  # rows of each file the trials draw from (the first ones)
 _AGREE = ("same",)  # verdicts and output statuses that agree (rows in another order do not:
 # the order of rows written is part of the output, unless --ignore-order makes it "same")
 
@@ -60,6 +59,7 @@ class TrialOptions:
     shrink_runs: int = 24  # verification runs the shrinking of one disagreement may take
     kinds: int = 3  # disagreements of different kinds shrunk and kept, at most
     out: Path | None = None  # where the smallest disagreeing dataset goes (default: the cwd)
+    sample_rows: int = 10_000  # rows of each file the trials draw from (the first ones)
 
 
 @dataclass(frozen=True)
@@ -135,14 +135,24 @@ class _Table:
     columns: list[_Column]
 
 
-def _read_table(root: Path, path: Path) -> _Table | None:
+def _read_table(root: Path, path: Path, sample_rows: int = 10_000) -> _Table | None:
     """The file as lines before the data and rows of cells; None when its rows do not all
     split into the header's number of cells (the file is then copied as it is)."""
-    try:
-        text = path.read_text(encoding="utf-8-sig")
+    lines: list[str] = []
+    body: list[str] = []
+    try:  # the lines before the data, then at most sample_rows data lines (a big file is
+        # not read whole)
+        with path.open(encoding="utf-8-sig") as handle:
+            for line in handle:
+                line = line.rstrip("\r\n")
+                if not lines or not lines[-1].strip() or lines[-1].lstrip().startswith("#"):
+                    lines.append(line)
+                elif line.strip():
+                    body.append(line)
+                    if len(body) >= sample_rows:
+                        break
     except (OSError, UnicodeDecodeError):
         return None
-    lines = text.splitlines()
     first = next((i for i, line in enumerate(lines) if line.strip()
                   and not line.lstrip().startswith("#")), None)
     if first is None:
@@ -150,7 +160,6 @@ def _read_table(root: Path, path: Path) -> _Table | None:
     header = lines[first]
     separator = max(_SEPARATORS, key=header.count)
     width = len(next(csv.reader([header], delimiter=separator)))
-    body = [line for line in lines[first + 1:] if line.strip()][:_SAMPLE_ROWS]
     rows = list(csv.reader(body, delimiter=separator))
     if width < 1 or any(len(row) != width for row in rows) or not rows:
         return None
@@ -308,7 +317,8 @@ def run_trials(original: str | Path, converted_text: str, data_dir: str | Path,
     verify_options = replace(verify_options or VerifyOptions(), timing_runs=0, keep=False)
     tables, copied = [], []
     for path in sorted(p for p in data.rglob("*") if p.is_file() and not _own(p, data)):
-        table = _read_table(data, path) if path.suffix.lower() in (".csv", ".txt", ".tsv") else None
+        table = _read_table(data, path, options.sample_rows) \
+            if path.suffix.lower() in (".csv", ".txt", ".tsv") else None
         if table is None and path.suffix != ".py":
             copied.append(str(path.relative_to(data)))
         elif table is None:
