@@ -421,7 +421,7 @@ def review_command(args: argparse.Namespace) -> int:
                                      timing_runs=args.timing_runs),
         jobs=args.jobs, excludes=tuple(args.exclude), max_size=args.max_size, title=args.title,
         progress=not args.quiet, trials=args.trials, seed=args.seed,
-        trials_out=args.trials_out))
+        trials_out=args.trials_out, sample_rows=args.sample_rows))
     _write(Path(args.output), done.html)
     if not args.quiet:
         todos = sum(len(r.todos) for r in done.results)

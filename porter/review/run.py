@@ -28,6 +28,7 @@ class ReviewOptions:
     trials: int = 0  # with verify: randomised trials per script (porter.verify.trials)
     seed: int = 0
     trials_out: str | None = None
+    sample_rows: int = 10_000  # rows of each data file the trials draw from
 
 
 @dataclass
@@ -85,6 +86,7 @@ def trial_results(results: list[FileResult], data_dir: str, options: ReviewOptio
         if result.status == "converted" and result.converted_text:
             found[result.source] = run_trials(
                 result.source, result.converted_text, data_dir,
-                TrialOptions(trials=options.trials, seed=options.seed, out=out),
+                TrialOptions(trials=options.trials, seed=options.seed, out=out,
+                             sample_rows=options.sample_rows),
                 options.verify_options, sites=result.sites)  # type: ignore[arg-type]
     return found
