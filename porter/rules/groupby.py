@@ -227,6 +227,7 @@ def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleCo
     """The frame of aggregates, sorted like pandas, as a frame or (for one column) a Series.
 
     `dtypes` are the aggregates' types where known (agg_dtype); the keys keep theirs."""
+    _float_int_aggregates(grouped, exprs, ctx)
     code = grouping_code(grouped).method("agg", *exprs)
     kinds = dtypes or [None] * max(len(names), 1)
     if any(".sum()" in e.text and ".sum().cast(" not in e.text for e in exprs) \
@@ -254,6 +255,22 @@ def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleCo
         return Column(emit.col(name if name is not None else names[0]), frame=frame,
                       name=name, refs=frozenset(names), dtype=frame.dtype(names[0]))
     return frame
+
+
+def _float_int_aggregates(grouped: Grouped, exprs: list[Code], ctx: RuleContext) -> None:
+    """An integer column pandas holds as float64 when a step left a value missing (Frame.
+    float_ints: a map() that missed a value, a merge that left a row unmatched) aggregates to
+    float64 there (a sum of 50.0, written 50.0), to Int64 here with no missing value left in
+    the groups' sums (written 50): which one depends on the data, so the site says so."""
+    counted = ("count()", "len()", "n_unique()", "null_count()")
+    for name, why in grouped.frame.float_ints:
+        if name in grouped.keys:
+            continue
+        if any(emit.col(name).text in e.text and not any(c in e.text for c in counted)
+               for e in exprs):
+            ctx.lower(f"pandas holds `{name}` as float64 when {why}: its aggregates are float "
+                      "there (50.0), integers here (50) where no group is left without a value",
+                      0.9)
 
 
 def target_columns(grouped: Grouped, ctx: RuleContext) -> list[str] | None:
