@@ -1174,3 +1174,16 @@ def test_groupby_of_a_column_pandas_made_float_says_so() -> None:
     assert "float64" in sites[(5, "groupby.sum")].message
     assert sites[(6, "groupby.agg")].confidence <= 0.9
     assert sites[(7, "groupby.sum")].confidence == 1.0
+
+
+def test_sum_of_a_float32_column_as_pandas_adds_it(tmp_path) -> None:
+    # pandas adds float32 values as numpy does (pairwise, in float32): 57.8; Polars' lazy sum
+    # gave 57.800003. A float64 column of the same script is still pandas' sum
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("kilns.csv", dtype={"w": "float32"})
+        df["x"] = (df["w"] * 3).round(1)
+        df["v"] = df["w"].astype("float64") / 7
+        print(df["x"].sum(), df["w"].sum(), df["v"].sum(), f"{df['x'].sum():.6f}")
+        print(df[df["w"] > 100]["x"].sum())
+    """, tmp_path, {"kilns.csv": "kiln,w\nA,1.005\nB,2.675\nC,0.125\nD,3.14159\nE,\nF,12.345678\n"})

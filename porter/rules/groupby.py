@@ -13,6 +13,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.elementwise import body_expression
+from porter.rules.ops import float32_possible
 from porter.rules.io_options import (
     CATEGORY_COUNTS_FUNCTION, DIVIDE_FUNCTION, QUANTILE_FUNCTION, UNSTACKED_FUNCTION,
 )
@@ -548,6 +549,9 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         return replace(scalar_of(column, expr), pytype="datetime")
     if column.float_int is not None and column.dtype == "int" and how in ("sum", "min", "max"):
         return _float_int_reduction(column, code, expr)
+    if how == "sum" and column.dtype == "float" and not column.element \
+            and ("Float32" in code.text or float32_possible(ctx)):
+        return _numpy_sum(column, code, expr)
     if how in ("min", "max") and column.dtype is None:
         return _unknown_type_extreme(column, how, expr, ctx)
     if how in NAN_WHEN_EMPTY:
@@ -576,6 +580,17 @@ def _unknown_type_extreme(column: Column, how: str, expr: Code, ctx: RuleContext
     agg_column = Column(expr, frame=column.frame, name=column.name, refs=column.refs,
                         versions=column.versions)
     return Scalar(value, agg=agg_column)
+
+
+def _numpy_sum(column: Column, code: Code, expr: Code) -> Scalar:
+    """The sum of a float column that may be float32 (see ops.float32_possible), as pandas
+    computes it: numpy's pairwise sum in the column's own type (np.float32(57.8)), missing
+    values counted 0; Polars adds float32 values in another order (57.800003)."""
+    value = column.frame.code.method("select", code).method("collect").method(
+        "to_series").method("fill_null", 0).method("to_numpy").method("sum")
+    agg_column = Column(expr, frame=column.frame, name=column.name, refs=column.refs,
+                        versions=column.versions)
+    return Scalar(value, pytype="float", agg=agg_column)
 
 
 def _float_int_reduction(column: Column, code: Code, expr: Code) -> Scalar:
