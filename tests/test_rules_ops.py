@@ -138,6 +138,13 @@ COLUMNS = [
     pytest.param('df["a"] != df["b"]', id="!= of columns with NaN"),
     pytest.param('df["s"] != "x"', id="!= text with None"),
     pytest.param('df["s"] > "x"', id="text order comparison"),
+    pytest.param('df["s"] == 7', id="text == number is never equal"),
+    pytest.param('df["s"] != 7.5', id="text != number is always unequal"),
+    pytest.param('df["s"] == True', id="text == True is never equal"),
+    pytest.param('df["i"] == "7"', id="number == text is never equal"),
+    pytest.param('df["p"] == "true"', id="bool == text is never equal"),
+    pytest.param('df["p"] != "True"', id="bool != text is always unequal"),
+    pytest.param('df["s"] == df["i"]', id="text column == number column"),
     pytest.param('df["a"] > df["a"].mean()', id="comparison with a reduction"),
     pytest.param('~(df["a"] > 0)', id="~ of a comparison with NaN"),
     pytest.param('~(df["a"] != 1)', id="~ of != with NaN"),
@@ -502,3 +509,23 @@ df["v2"] = df["v"].round(2)
 whole = df[["w32", "v"]].round(2)
 result = df
 """, "result", "whole")
+
+
+def test_text_compared_with_numbers_and_booleans_from_data(tmp_path, monkeypatch) -> None:
+    """A code column read as text compared with a number, a yes/no column read as text compared
+    with True, and the reverse: pandas finds no value equal; Polars refuses text against a number
+    and reads True as the text "true"."""
+    (tmp_path / "kiln.csv").write_text("code,batch,fired,glazed\n7,1,true,True\n07,2,False,False\n"
+                                       ",3,,True\nA7,4,yes,False\n")
+    monkeypatch.chdir(tmp_path)
+    differential("""
+import pandas as pd
+df = pd.read_csv("kiln.csv", dtype={"code": str})
+df["is7"] = df["code"] == 7
+df["not7"] = df["code"] != 7
+df["fired_true"] = df["fired"] == True
+df["glazed_text"] = df["glazed"] == "true"
+one = df[df["batch"] == "1"]
+rest = df[df["batch"] != "1"]
+result = df
+""", "result", "one", "rest", data_dir=str(tmp_path))

@@ -319,7 +319,10 @@ def compare(call: PandasCall, ctx: RuleContext) -> Value:
     Polars; != is filled with True right away, the others are filled with False where the
     result is negated or used as a value (a filter drops null rows like False rows); text
     compared with a column known to hold datetimes is read as pandas reads it (pd.Timestamp)
-    and written as pl.datetime(...).
+    and written as pl.datetime(...); text compared (== or !=) with a number or True/False
+    (a text column with 7, a number column with "7", a True/False column with "true") is never
+    equal in pandas: False (True for !=) for every row, where Polars would refuse the
+    comparison or read True as "true".
     Caveats: with the column's type unknown, text that looks like a date lowers confidence
     (0.7): pandas parses it where the column holds datetimes. Polars reads the datetime in the
     column's unit (a column of milliseconds compared with a date holding microseconds).
@@ -329,6 +332,11 @@ def compare(call: PandasCall, ctx: RuleContext) -> Value:
     column = base_column(left, right)
     frame = column.frame
     left, right = _as_datetime(left, column), _as_datetime(right, column)
+    if call.name in ("==", "!=") and _text_against_other(left, right):
+        # "7" == 7, "true" == True, True == "true": never equal in pandas (Polars refuses
+        # text against a number and reads True as the text "true")
+        code = emit.pl("repeat", call.name == "!=", emit.pl("len"))
+        return derived_column(column, code, dtype="bool", others=[left, right])
     lcode, rcode = operand(left, frame, ctx), operand(right, frame, ctx)
     if call.name == "!=":
         if isinstance(right, Opaque) and right.is_const and right.const is not None:
@@ -341,6 +349,16 @@ def compare(call: PandasCall, ctx: RuleContext) -> Value:
                   "holds datetimes", 0.7)
     code = emit.binop(lcode, call.name, rcode)
     return derived_column(column, code, dtype="bool", null_is_false=True, others=[left, right])
+
+
+_NOT_TEXT = ("int", "float", "bool")
+
+
+def _text_against_other(left: Value, right: Value) -> bool:
+    """Text on one side and a number or True/False on the other (a column or a constant):
+    pandas compares them value by value and finds no value equal."""
+    types = {value_dtype(left), value_dtype(right)}
+    return "str" in types and bool(types & set(_NOT_TEXT))
 
 
 def _as_datetime(value: Value, column: Column) -> Value:
