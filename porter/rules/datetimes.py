@@ -163,8 +163,8 @@ class Periods(Column):
 def _week_text(time: Code) -> Code:
     start = time.attr("dt").method("truncate", "1w")  # Monday: pandas' W-SUN runs Monday-Sunday
     end = emit.binop(start, "+", emit.pl("duration", days=6))
-    return emit.pl("format", "{}/{}", start.attr("dt").method("to_string", "%Y-%m-%d"),
-                   end.attr("dt").method("to_string", "%Y-%m-%d"))
+    return emit.formatted("{}/{}", start.attr("dt").method("to_string", "%Y-%m-%d"),
+                          end.attr("dt").method("to_string", "%Y-%m-%d"))
 
 
 # pandas' period frequency -> (Polars' truncation to the period's start, the period's text
@@ -175,8 +175,8 @@ _PERIODS = {
     "min": ("1m", lambda t: t.attr("dt").method("to_string", "%Y-%m-%d %H:%M")),
     "W": ("1w", _week_text), "W-SUN": ("1w", _week_text),
     "M": ("1mo", lambda t: t.attr("dt").method("to_string", "%Y-%m")),
-    "Q": ("1q", lambda t: emit.pl("format", "{}Q{}", t.attr("dt").method("year"),
-                                  t.attr("dt").method("quarter"))),
+    "Q": ("1q", lambda t: emit.formatted("{}Q{}", t.attr("dt").method("year"),
+                                         t.attr("dt").method("quarter"))),
     "Y": ("1y", lambda t: t.attr("dt").method("to_string", "%Y")),
 }
 _PERIODS["Q-DEC"], _PERIODS["Y-DEC"] = _PERIODS["Q"], _PERIODS["Y"]
