@@ -514,16 +514,20 @@ first = h["crew_c"].cat.categories[0]
     assert "pl.Series(h" not in result.converted_text
 
 
-def test_a_nullable_integer_cast_says_what_a_later_hand_over_does():
-    # pandas holds astype("Int64") as a nullable column: 26 and <NA>; handed over from Polars
-    # later it would be float64 (26.0), which porter cannot mark yet: the site says so
-    result = convert('''
+def test_a_nullable_integer_column_keeps_its_type_through_a_hand_over(tmp_path) -> None:
+    # pandas holds astype("Int64") as a nullable column: 1 and <NA>. A statement kept on
+    # pandas (pd.Categorical) got it from Polars as float64 (1.0, nan), and the file written
+    # after it said 1.0 where pandas writes 1
+    source = """
 import pandas as pd
-df = pd.DataFrame({"w": [26.0, None]})
-df["week"] = df["w"].astype("Int64")
-''')
-    site = next(s for s in result.sites if s.key == "series.astype")
-    assert site.confidence <= 0.95 and "float64" in site.message
+df = pd.read_csv("orchard.csv")
+df["xi"] = df["x"].astype("Int64")
+df["c"] = pd.Categorical(df["k"])
+print(df["xi"].dtype, df["xi"].iloc[1] is pd.NA)
+df.to_csv("o.csv", index=False)
+"""
+    result = same_text(source, tmp_path, {"orchard.csv": "k,x\na,1\nb,\nc,3\n"})
+    assert 'astype({"xi": "Int64"})' in result.converted_text
 
 
 # -- columns pandas makes float64 because a value is missing, whatever the values ------------------

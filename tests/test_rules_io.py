@@ -1254,3 +1254,59 @@ def test_a_path_made_of_constants_outside_a_loop_is_still_scanned(path) -> None:
     site = next(s for s in result.sites if s.key == "pd.read_csv")
     assert site.status == "converted" and site.confidence <= 0.9 and "+3" in site.message
     assert "pl.scan_csv" in result.converted_text
+
+
+# -- pandas' nullable integers, marked per column ----------------------------------------------
+
+KILN_CSV = """\
+    fired,batch,cones
+    2024-01-05,3,
+    ,6,9
+    2024-02-10,-3,7
+    """
+
+
+def test_to_csv_writes_a_plain_int_column_as_floats_beside_a_nullable_one(tmp_path: Path) -> None:
+    # dt.month of a date column with NaT is float64 in pandas (1.0), isocalendar().week a
+    # nullable UInt32 (1): one nullable column in the script had switched the int writing
+    # off for every file, the month written 1
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("kiln.csv")
+        df["dt"] = pd.to_datetime(df["fired"], errors="coerce")
+        df["month"] = df["dt"].dt.month
+        df["week"] = df["dt"].dt.isocalendar().week
+        df["next_week"] = df["week"] + 1
+        df.to_csv("out.csv", index=False)
+        """, tmp_path, {"kiln.csv": KILN_CSV})
+
+
+def test_a_nullable_column_of_one_frame_leaves_another_frames_ints_alone(tmp_path: Path) -> None:
+    # astype("Int64") in one frame: the other frame's int column with a missing value is
+    # still float64 in pandas (7.0); the nullable one, renamed, is written 7
+    same_text("""
+        import pandas as pd
+        kiln = pd.read_csv("kiln.csv")
+        kiln["month"] = pd.to_datetime(kiln["fired"]).dt.month
+        ferry = pd.read_csv("kiln.csv", dtype={"batch": "Int64"})
+        ferry["n"] = ferry["cones"].astype("Int64")
+        ferry = ferry.rename(columns={"n": "cones_n"})
+        kiln.to_csv("kiln_out.csv", index=False)
+        ferry.to_csv("ferry_out.csv", index=False)
+        print(kiln["month"].astype(str).tolist(), ferry["cones_n"].astype(str).tolist())
+        """, tmp_path, {"kiln.csv": KILN_CSV})
+
+
+def test_to_csv_handed_to_pandas_keeps_nullable_integers(tmp_path: Path) -> None:
+    # float_format= hands the write to pandas: the Int64 column (and isocalendar()'s UInt32 /
+    # Int32 parts) reached it as float64 and were written 3.00
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("kiln.csv")
+        df["mi"] = df["cones"].astype("Int64")
+        df["d"] = pd.to_datetime(df["fired"], format="%Y-%m-%d")
+        df["wk"] = df["d"].dt.isocalendar().week
+        df["yr"] = df["d"].dt.isocalendar().year
+        df.to_csv("out.csv", index=False, float_format="%.2f")
+        print(df["wk"].tolist())
+        """, tmp_path, {"kiln.csv": KILN_CSV})

@@ -20,12 +20,12 @@ from porter.rules.io_options import datetime_text, duration_text, float_text
 from porter.rules.ops import int64_lit
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
-    mark_float_ints, with_column_updates,
+    mark_float_ints, nullable_mark, set_nullable_ints, with_column_updates,
 )
 from porter.rules.strings import LIST_STR, expanded_columns, list_repr
 from porter.translate.handover import makes_periods, orders_categories, text_categories
 from porter.translate.values import (
-    MISSING, Column, Frame, Opaque, PandasValue, Parts, Scalar, Value, fresh_token,
+    MISSING, NOT_NULLABLE, Column, Frame, Opaque, PandasValue, Parts, Scalar, Value, fresh_token,
 )
 
 
@@ -63,6 +63,18 @@ def _text_labelled(frame: Frame, names: Iterable[str]) -> Frame:
 
 
 _NULLABLE_INTS = {"Int64", "Int32", "Int16", "Int8", "UInt64", "UInt32", "UInt16", "UInt8"}
+
+
+def value_mark(value: Value, ctx: RuleContext) -> str | None:
+    """Whether a value assigned into a column makes it one of pandas' nullable integers: its
+    dtype name, NOT_NULLABLE, or None when porter does not know (Frame.nullable_ints)."""
+    if isinstance(value, Column) and (value.nullable_int is not None or ctx.nullable_ints_possible):
+        return value.nullable_int
+    if isinstance(value, (Opaque, Scalar)) and (not isinstance(value, Opaque) or value.is_const):
+        return NOT_NULLABLE  # a constant, a list or a reduction: numpy's types in pandas
+    if isinstance(value, Parts) or not ctx.nullable_ints_possible:
+        return NOT_NULLABLE  # text; or nothing in the script makes nullable integers
+    return None
 
 
 def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str | None]:
@@ -500,10 +512,13 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
         # df[["a", "b"]] = s.str.extract(pat): each part is an expression of the frame's rows
         names = column_names(key.const)
         columns = expanded_columns(value, names, frame, ctx)
-        return with_columns(frame, [(n, *value_expr(c, frame, ctx)) for n, c in zip(names, columns)])
+        return set_nullable_ints(
+            with_columns(frame, [(n, *value_expr(c, frame, ctx)) for n, c in zip(names, columns)]),
+            dict.fromkeys(names, NOT_NULLABLE))
     if isinstance(key, Opaque) and isinstance(key.const, str):
         code, dtype = value_expr(value, frame, ctx)
-        result = with_columns(frame, [(key.const, code, dtype)])
+        result = set_nullable_ints(with_columns(frame, [(key.const, code, dtype)]),
+                                   {key.const: value_mark(value, ctx)})
         if isinstance(value, Column) and value.float_int is not None:
             # still float64 in pandas when a value went missing (lost_float_ints)
             result = mark_float_ints(result, [key.const], value.float_int)
@@ -514,7 +529,8 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
             and not isinstance(value.const, (list, tuple, dict)):
         # df[["a", "b"]] = 0 broadcasts one value into every named column
         code, dtype = value_expr(value, frame, ctx)
-        return with_columns(frame, [(k, code, dtype) for k in key.const])
+        return set_nullable_ints(with_columns(frame, [(k, code, dtype) for k in key.const]),
+                                 dict.fromkeys(key.const, NOT_NULLABLE))
     if isinstance(key, Opaque) and not key.is_const and key.pytype == "str":
         code, _ = value_expr(value, frame, ctx)
         new = frame.code.method("with_columns", code.method("alias", key.code))
@@ -574,23 +590,26 @@ def assign(call: PandasCall, ctx: RuleContext) -> Value:
     from porter.rules.elementwise import frame_lambda
     pending: list[tuple[str, Code, str | None]] = []
     made: set[str] = set()
+    marks: dict[str, str | None] = {}  # pandas' nullable integers among them
     for name, value in call.kwargs.items():
         if isinstance(value, Opaque) and isinstance(value.node, cst.Lambda):
             # the lambda receives the frame with the earlier keywords' columns already in it
             value = frame_lambda(value.node, with_columns(frame, pending), ctx)
         if isinstance(value, Column) and value.refs & made:
-            frame = with_columns(frame, pending)
-            pending, made = [], set()
+            frame = set_nullable_ints(with_columns(frame, pending), marks)
+            pending, made, marks = [], set(), {}
             value = _rebase(value, frame)
         code, dtype = value_expr(value, frame, ctx)
         pending.append((name, code, dtype))
         made.add(name)
-    return with_columns(frame, pending)
+        marks[name] = value_mark(value, ctx)
+    return set_nullable_ints(with_columns(frame, pending), marks)
 
 
 def _rebase(column: Column, frame: Frame) -> Column:
     return Column(column.code, frame=frame, name=column.name, dtype=column.dtype,
                   null_is_false=column.null_is_false, refs=column.refs,
+                  nullable_int=column.nullable_int,
                   versions=tuple((n, frame.version(n)) for n in column.refs))
 
 
@@ -654,8 +673,19 @@ def rename(call: PandasCall, ctx: RuleContext) -> Value:
     versions = tuple((k, v) for k, v in frame.versions if k not in names and k not in names.values()) \
         + tuple((new, fresh_token()) for new in names.values())
     index = tuple(names.get(k, k) for k in frame.index)
-    return _text_labelled(derive(frame, code, same_rows=True, columns=new_columns, dtypes=dtypes,
-                                 versions=versions, index=index), names.values())
+    result = derive(frame, code, same_rows=True, columns=new_columns, dtypes=dtypes,
+                    versions=versions, index=index)
+    return _text_labelled(_renamed_marks(result, frame, names), names.values())
+
+
+def _renamed_marks(result: Frame, frame: Frame, names: dict[str, str]) -> Frame:
+    """`result`, `frame` with columns renamed `names` (old: new), with the marks of pandas'
+    nullable integers (Frame.nullable_ints) following the names."""
+    if frame.nullable_ints is None:
+        return result
+    marks = {names.get(n, n): nullable_mark(frame, n) for n in
+             [*dict(frame.nullable_ints), *frame.unsure_ints, *names]}
+    return set_nullable_ints(replace(result, nullable_ints=(), unsure_ints=()), marks)
 
 
 @rule("frame.drop")
@@ -706,7 +736,8 @@ def set_columns(call: PandasCall, ctx: RuleContext) -> Value:
             code = frame.code.method("rename", emit.call("dict", emit.call("zip", old_names, value.code)))
             ctx.lower("new names are computed at run time", 0.9)
             return derive(frame, code, same_rows=True, columns=None, dtypes=(), column_pairs=(),
-                          int_labels_except=None, columns_name=None)
+                          int_labels_except=None, columns_name=None,
+                          nullable_ints=_marks_after_renaming(frame), unsure_ints=())
         raise Unsupported("new column names from a pandas value")
     new = [str(v) for v in value.const]
     if len(set(new)) != len(new):
@@ -723,11 +754,19 @@ def set_columns(call: PandasCall, ctx: RuleContext) -> Value:
         code = frame.code.method("rename", mapping)
         kinds = tuple((n, k) for o, n in zip(frame.columns, [mapping.get(c, c) for c in frame.columns])
                       if (k := frame.dtype(o)))
-        return derive(frame, code, same_rows=True, columns=tuple(mapping.get(c, c) for c in frame.columns),
-                      dtypes=kinds, column_pairs=(), int_labels_except=None, columns_name=None)
+        result = derive(frame, code, same_rows=True, columns=tuple(mapping.get(c, c) for c in frame.columns),
+                        dtypes=kinds, column_pairs=(), int_labels_except=None, columns_name=None)
+        return _renamed_marks(result, frame, mapping)
     code = frame.code.method("rename", emit.call("dict", emit.call("zip", old_names, new)))
     return derive(frame, code, same_rows=True, columns=(*frame.index, *new) if frame.index else tuple(new),
-                  dtypes=(), column_pairs=(), int_labels_except=None, columns_name=None)
+                  dtypes=(), column_pairs=(), int_labels_except=None, columns_name=None,
+                  nullable_ints=_marks_after_renaming(frame), unsure_ints=())
+
+
+def _marks_after_renaming(frame: Frame) -> tuple[tuple[str, str], ...] | None:
+    """Frame.nullable_ints after the columns were renamed by names porter does not pair with
+    the old ones: none still when the frame held none, else not known."""
+    return None if frame.nullable_ints or frame.unsure_ints else frame.nullable_ints
 
 
 @rule("frame.columns.name")
@@ -802,16 +841,17 @@ def astype(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: bool to text writes True/False like pandas; integers to text write "7.0" where
     the column holds a missing value (float in pandas), decided over the whole column at run
     time; numbers to bool count missing values as True (NaN is truthy in pandas).
+    pandas' nullable integers (astype("Int64")) are Polars integers, marked so: to_csv writes
+    them as ints beside a missing value (2024, where a plain int column is float64: 2024.0),
+    and a hand-over to pandas gives them back their dtype.
     Caveats: pandas raises when casting missing values to int; Polars keeps them missing.
-    pandas' nullable integers (astype("Int64")) are Polars integers here: a frame handed to
-    pandas later holds such a column with a missing value as float64 (0.95).
     """
     ctx.reject_unknown(call, "dtype", positional=1)
     receiver = call.receiver
     target = call.arg("dtype", 0)
     if isinstance(receiver, Column):
         code, dtype = cast_expr(receiver, target, ctx)
-        return derived_column(receiver, code, dtype=dtype)
+        return replace(derived_column(receiver, code, dtype=dtype), nullable_int=cast_mark(target))
     assert isinstance(receiver, Frame)
     if isinstance(target, Opaque) and isinstance(target.const, dict):
         if not all(isinstance(name, str) for name in target.const):
@@ -821,7 +861,8 @@ def astype(call: PandasCall, ctx: RuleContext) -> Value:
             column = Column(emit.col(name), frame=receiver, name=name, dtype=receiver.dtype(name))
             code, dtype = cast_expr(column, Opaque(emit.lit(kind), const=kind), ctx)
             items.append((name, code, dtype))
-        return with_columns(receiver, items)
+        return set_nullable_ints(with_columns(receiver, items), {
+            name: cast_mark(Opaque(emit.lit(kind), const=kind)) for name, kind in target.const.items()})
     if receiver.columns is None:
         raise Unsupported("casting every column needs the column names (use a dict, or --data)")
     items = []
@@ -829,7 +870,18 @@ def astype(call: PandasCall, ctx: RuleContext) -> Value:
         column = Column(emit.col(name), frame=receiver, name=name, dtype=receiver.dtype(name))
         code, dtype = cast_expr(column, target, ctx)
         items.append((name, code, dtype))
-    return with_columns(receiver, items)
+    return set_nullable_ints(with_columns(receiver, items),
+                             dict.fromkeys(receiver.columns, cast_mark(target)))
+
+
+def cast_mark(target: Value) -> str | None:
+    """What astype(target) makes of a column: one of pandas' nullable integers (its name),
+    NOT_NULLABLE, or None when the type is not written out (Frame.nullable_ints)."""
+    if isinstance(target, Opaque) and target.const in _NULLABLE_INTS:
+        return target.const
+    if isinstance(target, Opaque) and isinstance(target.const, (str, type)):
+        return NOT_NULLABLE
+    return None
 
 
 @rule("pd.to_numeric")
@@ -873,10 +925,12 @@ def int_text(column: Column, code: Code, ctx: RuleContext) -> Code:
     "7.0"; decided over the whole column at run time, as PANDAS_CSV_INTS decides it for
     to_csv. A missing value stays missing in both."""
     as_text = code.method("cast", emit.atom("pl.String"))
-    if ctx.nullable_ints_possible:
-        ctx.lower("the script uses pandas' nullable integers, which porter does not tell from "
-                  "plain ones: an integer column holding a missing value is written \"7\" as a "
-                  "nullable one is; a plain one is float in pandas (\"7.0\")", 0.9)
+    if column.nullable_int:  # pandas' nullable integers are written "7" beside a missing value
+        return as_text
+    if ctx.nullable_ints_possible and column.nullable_int is None:
+        ctx.lower("the script uses pandas' nullable integers, and porter does not know whether "
+                  "this column is one: an integer column holding a missing value is written "
+                  "\"7\" as a nullable one is; a plain one is float in pandas (\"7.0\")", 0.9)
         return as_text
     if not column.frame.labels_intact:
         ctx.lower("rows were filtered or sorted before: an integer column that held a missing "
@@ -888,10 +942,6 @@ def int_text(column: Column, code: Code, ctx: RuleContext) -> Code:
 
 def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, str]:
     polars, kind = polars_dtype(target)
-    if isinstance(target, Opaque) and target.const in _NULLABLE_INTS:
-        ctx.lower(f"{target.const} is one of pandas' nullable integers: with a missing value a "
-                  "frame handed to pandas later holds the column as float64 (written 26.0 where "
-                  "pandas writes 26)", 0.95)
     code = column.code.method("fill_null", False) if column.null_is_false else column.code
     if kind == "str" and column.dtype in ("bool", None):
         if column.dtype is None:

@@ -16,7 +16,7 @@ from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_DURATIONS_CONST
                                      CSV_FLOATS_CONSTANT,
                                      CSV_INTS_CONSTANT, CSV_LISTS_CONSTANT,
                                      CSV_NUMBER_LISTS_CONSTANT, CSV_ZONED_DATETIMES_CONSTANT,
-                                     DTYPES,
+                                     DTYPES, NULLABLE_INT_DTYPES,
                                      NA_CONSTANT, NOT_DECOMPRESSED, PANDAS_NA_TOKENS,
                                      POLARS_CSV_COMPRESSION, compression_of, is_number, is_url,
                                      na_value_numbers, na_value_texts,
@@ -25,7 +25,8 @@ from porter.analysis.schema import PADDING, FileSchema
 from porter.rules.datetimes import GUESS_REASON, Strptime, formatted_parse, guessed_parse, strptime_port
 from porter.rules.strings import LIST_STR, list_repr
 from porter.translate import handover
-from porter.translate.context import PandasCall, RuleContext, Unsupported, derive, select_columns
+from porter.translate.context import (PandasCall, RuleContext, Unsupported, derive,
+                                     nullable_columns, select_columns)
 from porter.translate.values import Frame, Module, Opaque, Scalar, Value
 
 READ_CSV_IGNORED = {"low_memory", "engine", "memory_map", "on_bad_lines"}
@@ -141,11 +142,14 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo(f"dtype={spelled or dtype_value.code.text} for every column: give a dict of columns")
     overrides: dict[str, Code] = {}
     dtypes: dict[str, str] = {}
+    nullable: dict[str, str] = {}  # pandas' nullable integers (dtype={"c": "Int64"})
     if dtype:
         for column, kind in call.kwargs["dtype"].const.items():  # type: ignore[union-attr]
             spelled = kind.__name__ if isinstance(kind, type) else str(kind)
             if spelled not in DTYPES:
                 raise ctx.todo(f"dtype {spelled!r} for column {column!r} is not in porter's table")
+            if spelled in NULLABLE_INT_DTYPES:
+                nullable[column] = spelled
             overrides[column] = emit.atom(DTYPES[spelled][0])
             dtypes[column] = DTYPES[spelled][1]
         options["dtype"] = dict(call.kwargs["dtype"].const)  # type: ignore[union-attr]
@@ -273,7 +277,9 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     if numbers:
         code = _numbers_missing(code, numbers, dtypes if columns is not None else None,
                                 getattr(schema, "missing_ints", frozenset()))
-    frame = Frame(code, columns=columns, dtypes=tuple(dtypes.items()))
+    # pandas' read_csv makes plain numpy integers (float64 with a missing value) unless told
+    frame = Frame(code, columns=columns, dtypes=tuple(dtypes.items()),
+                  nullable_ints=tuple(nullable.items()))
 
     usecols = call.const_values("usecols", kinds=(str, int))
     if usecols is not None:
@@ -528,9 +534,12 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     make them).
     Caveats: booleans and datetimes are written as pandas writes them (True/False, no `T`,
     the offset of a time zone: +00:00);
-    an integer column holding a missing value as floats (2024.0: float64 in pandas), unless
-    the script can make pandas' nullable integers, which porter does not tell apart (0.9); a
-    missing value alone on its line (one column) as "". With the default index=True on a
+    an integer column holding a missing value as floats (2024.0: float64 in pandas), and one
+    pandas holds as its nullable integers (astype("Int64"), dtype={"c": "Int64"},
+    isocalendar()) as ints (2024); where porter does not know which columns are nullable (a
+    frame back from pandas or built by a step that does not follow them, in a script that
+    makes nullable integers) as ints (0.9); a missing value alone on its line (one column)
+    as "". With the default index=True on a
     plain frame the write is handed to pandas (with its sep, header, na_rep,
     encoding) so the row labels are written.
     """
@@ -577,6 +586,7 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo(f"encoding {encoding!r}: Polars writes UTF-8 only")
     if frame.columns is not None and len(frame.dtypes) == len(frame.columns):
         ctx.confidence = max(ctx.confidence, 0.98)  # every column's type is known and handled
+    frame = nullable_ints_text(frame, ctx)
     text = csv_text_columns(frame, ctx)
     kinds = {t for _, t in frame.dtypes}
     if CSV_DATETIMES_CONSTANT in {c.text for c in text}:
@@ -732,14 +742,18 @@ def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
         # porter has no type for
         out.append(emit.atom(CSV_DURATIONS_CONSTANT))
     if "int" in kinds or not complete:
-        if ctx.nullable_ints_possible:
+        if ctx.nullable_ints_possible and frame.nullable_ints is None:
             # pandas' nullable Int64 (astype("Int64"), dtype={"c": "Int64"}) writes 2024
             # where a plain integer column with a missing value, float in pandas, writes 2024.0;
-            # porter does not tell them apart, and writes integers as integers
-            ctx.lower("the script uses pandas' nullable integers, which porter does not tell "
-                      "from plain ones: an integer column holding a missing value is written "
-                      "2024, as a nullable column is; a plain one is float in pandas (2024.0)", 0.9)
+            # porter does not know which columns of this frame are nullable (a frame a step
+            # built without following them, or back from pandas), and writes integers as integers
+            ctx.lower("the script uses pandas' nullable integers, and porter does not know which "
+                      "columns of this frame are: an integer column holding a missing value is "
+                      "written 2024, as a nullable column is; a plain one is float in pandas "
+                      "(2024.0)", 0.9)
         else:
+            # (the columns pandas holds as nullable integers are text already: the selector
+            # passes over them)
             out.append(emit.atom(CSV_INTS_CONSTANT))
     if "float" in kinds or not complete:
         # Python's repr of small floats (5e-05, 1.5e-07), where Polars writes 0.00005, 1.5e-7;
@@ -760,6 +774,29 @@ def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
             ctx.lower(_LIST_REPR_CAVEAT, 0.99)
             out.append(list_repr(emit.col(name)).method("alias", name))
     return out
+
+
+def nullable_ints_text(frame: Frame, ctx: RuleContext) -> Frame:
+    """`frame` with the integer columns pandas holds as nullable integers (astype("Int64"),
+    dtype={"c": "Int64"}, dt.isocalendar() parts) written as their digits: pandas writes 2024
+    for them even beside a missing value, where PANDAS_CSV_INTS writes a plain int column
+    holding one as float64 (2024.0). A column porter cannot tell (written by a step from a
+    frame that holds nullable integers) is written as ints too, at lower confidence."""
+    if frame.nullable_ints is None:
+        return frame  # nothing known (csv_text_columns says so)
+    nullable, unsure = nullable_columns(frame)  # type: ignore[misc]
+    if unsure:
+        ctx.lower(f"porter does not know whether pandas holds {', '.join(map(repr, unsure))} as "
+                  "one of its nullable integers (written 2024) or as a plain int column "
+                  "(float64 with a missing value, written 2024.0): written as integers", 0.9)
+    names = [*nullable, *unsure]
+    if not names:
+        return frame
+    # the integer columns among them (an unsure one may be of another type): their digits
+    chosen = emit.binop(emit.call("pl.selectors.by_name", *names, require_all=False), "&",
+                        emit.atom("pl.selectors.integer()"))
+    return derive(frame, frame.code.method("with_columns", chosen.method(
+        "cast", emit.atom("pl.String"))), same_rows=True)
 
 
 def _makes_arrays(ctx: RuleContext) -> bool:

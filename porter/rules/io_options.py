@@ -333,6 +333,9 @@ DTYPES: dict[str, tuple[str, str]] = {
     "datetime64[us]": ("pl.Datetime(\"us\")", "datetime"),
 }
 PYTHON_TYPES = {"str": "str", "int": "int", "float": "float", "bool": "bool"}
+# pandas' nullable integer dtypes: a missing value keeps them integers (<NA>, written 2024)
+NULLABLE_INT_DTYPES = frozenset({"Int64", "Int32", "Int16", "Int8",
+                                 "UInt64", "UInt32", "UInt16", "UInt8"})
 
 
 # pandas infers a file's compression from its name. Polars' scans detect gzip and zstd by their

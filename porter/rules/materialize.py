@@ -10,6 +10,7 @@ from dataclasses import replace
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
+from porter.translate import handover
 from porter.translate.context import PandasCall, RuleContext
 from porter.translate.values import Column, Frame, Opaque, Scalar, Value
 
@@ -19,9 +20,9 @@ def _series(column: Column) -> Code:
     return column.frame.code.method("select", expr).method("collect").method("to_series")
 
 
-# porter does not tell pandas' nullable integers (astype("Int64")) from plain ones
-NULLABLE_INT_VALUES = ("the script uses pandas' nullable integers, which porter does not tell from "
-                       "plain ones: with a missing value, pandas' nullable column gives ints and "
+# porter does not know whether pandas holds the column as a nullable integer (astype("Int64"))
+NULLABLE_INT_VALUES = ("the script uses pandas' nullable integers, and porter does not know "
+                       "whether this column is one: with a missing value, pandas' nullable column gives ints and "
                        "<NA> ([1, <NA>, 3]), this gives floats and nan ([1.0, nan, 3.0]) as "
                        "a plain one does")
 
@@ -34,11 +35,20 @@ def series_values(call: PandasCall, ctx: RuleContext) -> Value:
     with missing values become float, as in pandas; a text column's values are pandas' own
     (to_pandas()): a missing text is nan there (true, and 'nan' as text), None in Polars;
     tolist() of True/False with a missing value gives nan for it (pandas' object column).
+    A column pandas holds as one of its nullable integers (astype("Int64"), isocalendar())
+    gives pandas' own values (to_pandas() with its dtype): ints and <NA>.
     Caveats: a column of unknown type gives None for a missing text where pandas gives nan.
     """
     column = call.receiver
     assert isinstance(column, Column)
     ctx.reject_unknown(call)
+    if column.nullable_int and not column.element and not column.frame.index:
+        ctx.handover = True  # pandas' own values: ints and <NA> ([1, <NA>, 3])
+        code = handover.to_pandas(column)
+        if call.name == "values":
+            return Scalar(code.attr("values"), pytype="array")
+        return Scalar(code.method(call.name), pytype="list" if call.name in ("tolist", "to_list")
+                      else "array")
     if column.dtype == "str":
         ctx.handover = True  # pandas' own values: nan for a missing text, as the script reads it
         code = _series(column).method("to_pandas")
@@ -53,7 +63,7 @@ def series_values(call: PandasCall, ctx: RuleContext) -> Value:
                            f"{_series(column).method('to_list').text}]"), pytype="list")
     if column.dtype not in ("int", "float", "bool"):
         ctx.lower("a missing text value is None here, nan in pandas", 0.95)
-    if column.dtype in ("int", None) and ctx.nullable_ints_possible:
+    if column.dtype in ("int", None) and ctx.nullable_ints_possible and column.nullable_int is None:
         ctx.lower(NULLABLE_INT_VALUES, 0.9)
     code = _series(column).method("to_numpy")
     if call.name in ("tolist", "to_list"):

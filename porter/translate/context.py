@@ -13,7 +13,8 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.model import MappingEntry
 from porter.translate.values import (
-    MISSING, Column, Frame, Grouped, Opaque, PandasValue, Scalar, Value, fresh_token,
+    MISSING, NOT_NULLABLE, Accessor, Column, Frame, Grouped, Opaque, PandasValue, Scalar, Value,
+    fresh_token,
 )
 
 
@@ -251,6 +252,13 @@ def with_column_updates(frame: Frame, code: Code, updates: dict[str, str | None]
     dtypes = dict(frame.dtypes)
     versions = dict(frame.versions)
     frame = replace(frame, float_ints=tuple(m for m in frame.float_ints if m[0] not in updates))
+    if frame.nullable_ints is not None:
+        # a column written here is one of pandas' nullable integers only if made from one
+        # (the rule that knows marks it: set_nullable_ints); in a frame that holds none, it
+        # cannot be one
+        unsure = bool(frame.nullable_ints or frame.unsure_ints)
+        frame = set_nullable_ints(frame, {name: None if unsure else NOT_NULLABLE
+                                          for name in updates})
     for name, dtype in updates.items():
         if dtype is None:
             dtypes.pop(name, None)
@@ -277,7 +285,79 @@ def column_of(frame: Frame, name: str, code: Code | None = None) -> Column:
         refs=frozenset({name}),
         versions=((name, frame.version(name)),),
         float_int=dict(frame.float_ints).get(name),
+        nullable_int=nullable_mark(frame, name),
     )
+
+
+# -- pandas' nullable integer columns ---------------------------------------------------------
+#
+# astype("Int64"), dtype={"c": "Int64"} and dt.isocalendar() make columns pandas holds as its
+# nullable integers: with a missing value they are written and printed as ints (2024, <NA>),
+# where a plain int column is float64 (2024.0, nan). Polars has one kind of integer, so porter
+# marks them per column (Frame.nullable_ints, Column.nullable_int): to_csv writes them as ints,
+# a hand-over to pandas gives them back their dtype. Where the mark is unknown (a frame a step
+# built without following them, or back from pandas) the rules say so.
+
+# pandas' dtype of each part of dt.isocalendar()
+ISOCALENDAR_DTYPES = {"series.dt.isocalendar.year": "Int32", "series.dt.isocalendar.week": "UInt32",
+                      "series.dt.isocalendar.day": "UInt32"}
+# steps whose result from a nullable integer column may be of any pandas type
+_ANY_TYPE = frozenset({"series.apply", "series.map", "series.transform", "series.pipe",
+                       "series.agg", "series.aggregate", "series.combine"})
+
+
+def nullable_mark(frame: Frame, name: str) -> str | None:
+    """pandas' nullable integer dtype of column `name` of `frame`, NOT_NULLABLE when it is not
+    one, None when porter does not know."""
+    if frame.nullable_ints is None or name in frame.unsure_ints:
+        return None
+    return dict(frame.nullable_ints).get(name, NOT_NULLABLE)
+
+
+def set_nullable_ints(frame: Frame, marks: dict[str, str | None]) -> Frame:
+    """`frame` with the columns of `marks` marked: a dtype name (one of pandas' nullable
+    integers), NOT_NULLABLE, or None (not known). A frame whose marks are unknown stays so."""
+    if frame.nullable_ints is None:
+        return frame
+    nullable = tuple(m for m in frame.nullable_ints if m[0] not in marks) + tuple(
+        (n, m) for n, m in marks.items() if m)
+    unsure = tuple(n for n in frame.unsure_ints if n not in marks) + tuple(
+        n for n, m in marks.items() if m is None)
+    return replace(frame, nullable_ints=nullable, unsure_ints=unsure)
+
+
+def nullable_columns(frame: Frame) -> tuple[list[str], list[str]] | None:
+    """The columns of `frame` pandas holds as nullable integers, and those porter does not know
+    to be or not (present in the frame, where its columns are known); None when porter knows
+    nothing of them."""
+    if frame.nullable_ints is None:
+        return None
+    present = (lambda n: True) if frame.columns is None else (lambda n: n in frame.columns)
+    return ([n for n, _ in frame.nullable_ints if present(n)],
+            [n for n in frame.unsure_ints if present(n)])
+
+
+def _nullable_result(key: str, call: PandasCall, result: Value) -> Value:
+    """A column a rule computed, marked from the columns it was computed from where the rule
+    did not mark it: pandas' nullable integers stay so through arithmetic, fills, filters
+    (Int64 + 1 is Int64); a result that is not an integer is not one."""
+    if not isinstance(result, Column) or result.nullable_int is not None or result.element:
+        return result
+    if key in ISOCALENDAR_DTYPES:
+        return replace(result, nullable_int=ISOCALENDAR_DTYPES[key])
+    if result.dtype not in ("int", None):
+        return replace(result, nullable_int=NOT_NULLABLE)
+    given = [call.receiver, *call.args, *call.kwargs.values()]
+    inputs = [v.column if isinstance(v, Accessor) else v for v in given]
+    marks = [v.nullable_int for v in inputs if isinstance(v, Column)]
+    if not marks:
+        return result
+    nullable = next((m for m in marks if m), None)
+    if nullable is not None:
+        return result if key in _ANY_TYPE else replace(result, nullable_int=nullable)
+    if all(m == NOT_NULLABLE for m in marks):
+        return replace(result, nullable_int=NOT_NULLABLE)
+    return result
 
 
 # -- integer columns pandas holds as float64 when a value went missing --------------------------
@@ -307,6 +387,12 @@ def float_int_reason(names: Sequence[str], why: str) -> str:
 
 
 def lost_float_ints(key: str, call: PandasCall, result: Value, ctx: RuleContext) -> Value:
+    """`result` of the rule for `key`, with the marks of int columns pandas holds as float64
+    (_float_int_result) and of pandas' nullable integers (_nullable_result) carried on."""
+    return _nullable_result(key, call, _float_int_result(key, call, result, ctx))
+
+
+def _float_int_result(key: str, call: PandasCall, result: Value, ctx: RuleContext) -> Value:
     """`result` of the rule for `key`: where the call removes the missing values that made
     pandas hold a marked int column as float64, the site's confidence is lowered and the mark
     cleared; an expression of a marked column that keeps its values (arithmetic) keeps it."""

@@ -113,6 +113,12 @@ def to_pandas(value: Value) -> Code:
         code = code.method("collect").method("to_pandas")
         if categories:
             code = code.method("astype", {c: "category" for c in categories})
+        nullable = {c: kind for c, kind in value.nullable_ints or ()
+                    if value.columns is not None and c in value.columns}
+        if nullable:
+            # pandas' nullable integers (astype("Int64"), isocalendar()): Polars hands an int
+            # column holding a missing value over as float64
+            code = code.method("astype", nullable)
         code = _as_pandas_made_them(code, value.dtypes, value.columns)
         if value.index:
             code = _labels(code, value)
@@ -155,6 +161,8 @@ def to_pandas(value: Value) -> Code:
                 code = code.attr("dt").attr("date")  # see _as_pandas_made_them
             elif value.dtype == "bool" and not value.null_is_false:
                 code = code.method("fillna", emit.atom('float("nan")'))
+            elif value.nullable_int:  # pandas' nullable integers (see Frame above)
+                code = code.method("astype", value.nullable_int)
         # a Series pandas made without a name has none (Polars calls it "0")
         return code.method("rename", None) if value.name is None else code
     if isinstance(value, Grouped) and value.pandas is not None:

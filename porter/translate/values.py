@@ -84,6 +84,14 @@ class Frame(Value):
     # those nulls. Each with what made it so; a step that removes the nulls (fillna, dropna, a
     # filter, a group key) lowers its confidence and clears the mark (lost_float_ints)
     float_ints: tuple[tuple[str, str], ...] = field(default=(), kw_only=True)
+    # columns pandas holds as its nullable integers (astype("Int64"), dtype={"c": "Int64"},
+    # dt.isocalendar() parts), each with pandas' dtype name: with a missing value pandas
+    # writes and prints them as ints (2024, <NA>) where a plain int column is float64 (2024.0,
+    # nan). None when porter does not know which columns are (a frame built by a step that
+    # does not follow them, or back from pandas); `unsure_ints` names the columns of a known
+    # frame that a step wrote without saying (see context.nullable_mark)
+    nullable_ints: tuple[tuple[str, str], ...] | None = field(default=None, kw_only=True)
+    unsure_ints: tuple[str, ...] = field(default=(), kw_only=True)
 
     def dtype(self, column: str) -> str | None:
         return dict(self.dtypes).get(column)
@@ -113,6 +121,13 @@ class Column(Value):
     # an integer column pandas holds as float64 when a value went missing (Frame.float_ints):
     # what made it so, or None
     float_int: str | None = field(default=None, kw_only=True)
+    # pandas' nullable integer dtype of the column ("Int64", "UInt32"; Frame.nullable_ints),
+    # NOT_NULLABLE when it is known not to be one, None when porter does not know
+    nullable_int: str | None = field(default=None, kw_only=True)
+
+
+# Column.nullable_int of a column known not to be one of pandas' nullable integers
+NOT_NULLABLE = ""
 
 
 @dataclass(frozen=True)
