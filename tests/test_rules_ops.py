@@ -166,6 +166,9 @@ COLUMNS = [
     pytest.param('df["a"].clip(0, 1)', id="float clip keeps NaN"),
     pytest.param('df["i"].clip(lower=1)', id="clip lower"),
     pytest.param('df["i"].clip(upper=2.5)', id="clip upper float"),
+    pytest.param('df["a"].clip(1, -1)', id="clip bounds the wrong way round"),
+    pytest.param('df["i"].clip(upper=-1, lower=3)', id="clip int bounds the wrong way round"),
+    pytest.param('df["a"].clip(df["a"].max(), df["a"].min())', id="clip reductions the wrong way round"),
     pytest.param('np.where(df["a"] > 0, "pos", "other")', id="np.where NaN condition"),
     pytest.param('np.where(df["a"] > 0, df["a"], 0)', id="np.where column branch"),
     pytest.param('np.where(df["a"].isna(), 0, df["a"])', id="np.where isna"),
@@ -529,3 +532,20 @@ one = df[df["batch"] == "1"]
 rest = df[df["batch"] != "1"]
 result = df
 """, "result", "one", "rest", data_dir=str(tmp_path))
+
+
+def test_clip_bounds_computed_the_wrong_way_round(tmp_path, monkeypatch) -> None:
+    """Bounds taken from quantiles the wrong way round: pandas clips to the smaller and the
+    larger of the two; a NaN bound (the minimum of no rows) is no bound and moves nothing."""
+    (tmp_path / "ferry.csv").write_text("crossing,minutes\nA,5\nB,-3\nC,2.5\nD,\nE,40\n")
+    monkeypatch.chdir(tmp_path)
+    differential("""
+import pandas as pd
+df = pd.read_csv("ferry.csv")
+lo, hi = df["minutes"].quantile(0.9), df["minutes"].quantile(0.1)
+none = df[df["minutes"] > 100]
+df["c"] = df["minutes"].clip(lo, hi)
+df["c_nan"] = df["minutes"].clip(none["minutes"].min(), 1)
+df["c_nan2"] = df["minutes"].clip(hi, none["minutes"].min())
+result = df
+""", data_dir=str(tmp_path))

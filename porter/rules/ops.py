@@ -590,6 +590,8 @@ def clip(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: an integer column with float bounds becomes float in pandas; Polars would
     truncate the bounds, so the column is cast to Float64 first.
+    Two single bounds the wrong way round are swapped, as pandas swaps them (clip(3, 1) is
+    clip(1, 3)): constants here, bounds computed by the script when it runs.
     Caveats: pandas makes it float only when a value reaches a bound: one that no bound
     changes stays integer there (written 3, Polars 3.0) (0.95).
     """
@@ -608,7 +610,46 @@ def clip(call: PandasCall, ctx: RuleContext) -> Value:
     if any(isinstance(b, Column) for b in bounds):
         raise Unsupported("bounds given per row")
     args = [ctx.expr(b, column.frame) if b is not None else None for b in (lower, upper)]
+    if lower is not None and upper is not None:
+        args = _ordered_bounds(lower, upper, column, ctx)
     return derived_column(column, code.method("clip", *args), dtype=dtype)
+
+
+def _number_const(value: Value) -> bool:
+    return isinstance(value, Opaque) and value.is_const and isinstance(value.const, (int, float)) \
+        and not isinstance(value.const, bool)
+
+
+def _ordered_bounds(lower: Value, upper: Value, column: Column, ctx: RuleContext) -> list[Code]:
+    """pandas clips to the smaller and the larger of two single bounds (clip(3, 1) is
+    clip(1, 3)); a missing (NaN) bound is no bound, which Polars' clip does too. Constants are
+    ordered here, other values when the script runs: neither is moved when one is missing."""
+    frame = column.frame
+    if _number_const(lower) and _number_const(upper):
+        low, high = lower.const, upper.const  # type: ignore[union-attr]
+        if not (math.isnan(low) or math.isnan(high)) and low > high:
+            lower, upper = upper, lower
+        return [ctx.expr(lower, frame), ctx.expr(upper, frame)]
+    numbers = column.dtype in ("int", "float", "bool") or column.dtype is None and all(
+        _number_const(b) or isinstance(b, Scalar) and b.pytype in ("int", "float") for b in (lower, upper))
+    if column.dtype is None and not numbers:
+        ctx.lower("clip with two bounds computed at run time on a column of unknown type: a NaN "
+                  "bound is no bound in pandas, but may be taken as the larger one when pandas "
+                  "orders the two bounds here", 0.98)
+    codes = []
+    for bound in (lower, upper):
+        code = ctx.expr(bound, frame)
+        as_expr = _number_const(bound) or isinstance(bound, Scalar) and (
+            bound.agg is not None and bound.agg.frame.rows == frame.rows
+            or bound.expr is not None or bound.pytype == "float")
+        if not as_expr:
+            # a value of the script's (lo = s.quantile(0.9)): an expression, and its NaN no
+            # bound (Polars takes NaN for the larger value)
+            code = emit.pl("lit", code)
+            code = code.method("fill_nan", None) if numbers else code
+        codes.append(code)
+    swapped = emit.binop(codes[0], ">", codes[1])
+    return [emit.when(swapped, codes[1], codes[0]), emit.when(swapped, codes[0], codes[1])]
 
 
 @rule("np.where")
