@@ -305,3 +305,88 @@ def test_helpers_reading_one_module_frame_defined_before_and_after_them(tmp_path
             for i in range(2):
                 report(f"loop {i}")
         """, tmp_path, SALES)
+
+
+# -- a function called from a statement kept on pandas ---------------------------------------
+
+KILN = {"firings.csv": "kiln,cone,hours\nwest,6,4\neast,10,2\nnorth,8,\nsouth,4,3\n"}
+
+
+@pytest.mark.parametrize("body", [
+    'd.sort_values("cone")["cone"].cumsum()',
+    'd["cone"].sort_values(ascending=False)',
+    'd[d["cone"] > 5]["hours"] * 2',
+    'd.dropna()["cone"]',
+    'd["cone"].nlargest(2)',
+])
+def test_a_helper_called_where_pandas_aligns_its_series_stays_pandas(tmp_path, body):
+    # pandas puts the helper's Series in by its row labels (the statement stays pandas): its
+    # body, ported for a Polars frame, was called with the pandas frame (AttributeError), and
+    # its collected Series would have been numbered 0..n-1 again
+    same_text(f"""
+        import pandas as pd
+        df = pd.read_csv("firings.csv")
+        def helper(d):
+            return {body}
+        df["z"] = helper(df)
+        print(df["z"].tolist())
+        df.to_csv("o.csv", index=False)
+        """, tmp_path, KILN)
+
+
+@pytest.mark.parametrize("use", ['s = helper(df)\ndf["z"] = s\nprint(df["z"].tolist())',
+                                 'print(helper(df))'])
+def test_a_helpers_sorted_series_keeps_pandas_labels(tmp_path, use):
+    # the Series a helper returns after a sort carries the original row numbers, which
+    # pandas aligns on and prints
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("firings.csv")
+        def helper(d):
+            return d.sort_values("cone")["hours"]
+""" + textwrap.indent(use, " " * 8) + "\n",
+              tmp_path, KILN)
+
+
+def test_a_helper_of_the_frames_own_rows_is_still_ported(tmp_path):
+    result = same_text("""
+        import pandas as pd
+        df = pd.read_csv("firings.csv")
+        def helper(d):
+            return d["cone"] * 2
+        df["z"] = helper(df)
+        df.to_csv("o.csv", index=False)
+        """, tmp_path, KILN)
+    assert "TODO" not in result.converted_text
+
+
+def test_a_function_of_a_column_called_from_a_statement_kept_on_pandas(tmp_path):
+    # the where() is pandas' (a Series pandas aligns): tidy gets pandas' Series there, so it
+    # is not made a function of Polars expressions
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("firings.csv")
+        def tidy(s):
+            return s.str.upper()
+        df["m"] = tidy(df["kiln"]).where(df["cone"] > 5, "low")
+        df["n"] = tidy(df["kiln"])
+        print(df["m"].tolist())
+        df.to_csv("o.csv", index=False)
+        """, tmp_path, KILN)
+
+
+def test_a_helper_called_inside_a_try_kept_on_pandas(tmp_path):
+    # the `try` stays pandas, its frames handed over: helper is given the pandas frame there
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("firings.csv")
+        def helper(d):
+            return d["cone"] * 2
+        df["y"] = helper(df)
+        try:
+            df["z"] = helper(df) + pd.to_numeric("1")
+        except KeyError:
+            pass
+        print(df["z"].tolist())
+        df.to_csv("o.csv", index=False)
+        """, tmp_path, KILN)

@@ -474,6 +474,7 @@ class _Walker:
         held = [n for n in read if is_pandas(env.get(n)) and not isinstance(env.get(n), PandasValue)]
         if not held and not any(n in aliases for n in read):
             return None
+        self.note_pandas_calls(self.services.code_for(stmt), env)  # they run on pandas values
         lines: list[str] = []
         for name in held:
             value = env[name]
@@ -1025,6 +1026,16 @@ class _Walker:
         site = SiteDraft("function.return_series", "handover", "handover", 1.0,
                          "the function returns a Series its callers use as pandas: it is "
                          "computed here (.collect()) and handed over", line, end_line)
+        if of is None and not value.frame.labels_intact and not value.frame.index:
+            # after a filter or sort pandas' Series carries the original row numbers, which
+            # its callers align on or print; the collected one is numbered 0..n-1 again. A
+            # function given frames stays pandas code (the next pass gives it pandas frames)
+            if function is not None and function.frame_params:
+                self.services.pandas_called.add(self.function)
+            site = replace(site, confidence=0.5, message=(
+                "the function returns a Series whose row labels a filter or sort changed; "
+                "computed here (.collect()) it is numbered 0..n-1 again, where pandas keeps "
+                "the original row numbers (callers align on them and print them)"))
         return PandasValue(handover.to_pandas(value), sites=(*value.sites, site))
 
     def unchanged_or(self, node: cst.BaseExpression, value: Value, indent: str, prefix: str) -> tuple[str | None, list[SiteDraft]]:
@@ -1201,12 +1212,26 @@ class _Walker:
                 text = value.code.text if "\n" not in value.code.text else f"({value.code.text})"
                 statement = statement.with_changes(value=cst.parse_expression(text))
         original = self.services.code_for(statement).strip()
+        self.note_pandas_calls(original, env)
         # the whole statement stays pandas: what it uses is not converted after all
         sites = [replace(s, status="todo", confidence=0.0,
                          message="kept on pandas with the statement it is in")
                  if s.status == "converted" else s for s in result.sites]
         self.note_handed_over(name, frame)
         return "\n".join([*first, f"{name} = {handover.to_pandas(frame).text}", original]), sites
+
+    def note_pandas_calls(self, code: str, env: dict[str, Value]) -> None:
+        """The script's functions that pandas code kept as written calls (`df["c"] =
+        helper(df)`, with `df` handed over first): their parameters get pandas values there, so
+        a body ported for Polars frames or expressions would fail (or lose the labels pandas
+        aligns on). They become pandas' for every call (services.pandas_called), and the next
+        pass ports their bodies with the parameters as pandas values."""
+        for name in _called_names(code):
+            function = self.services.functions.get(name)
+            if name in env or function is None:
+                continue  # another value bound to the name, or not a function porter learns
+            if function.frame_params or function.column_params:
+                self.services.pandas_called.add(name)
 
     def hand_over_expressions_of(self, name: str, env: dict[str, Value],
                                  stmt: cst.CSTNode | None) -> list[str]:
@@ -1816,6 +1841,16 @@ def _makes_plain_frame(node: cst.BaseExpression) -> bool:
             and len(keywords) == len(node.args) \
             and (drop is None or isinstance(drop, cst.Name) and drop.value == "False")
     return not {"left_index", "right_index", "indicator"} & set(keywords)
+
+
+def _called_names(code: str) -> list[str]:
+    """The plain names called in the code (`helper` in `df["c"] = helper(df)`)."""
+    try:
+        tree = ast.parse(textwrap.dedent(code).strip())
+    except (SyntaxError, ValueError, RecursionError):
+        return []
+    return list(dict.fromkeys(node.func.id for node in ast.walk(tree)
+                              if isinstance(node, ast.Call) and isinstance(node.func, ast.Name)))
 
 
 def _from_pandas(name: str, frame: Frame) -> Code:

@@ -123,6 +123,10 @@ class Services:
     # functions whose result's row labels are read where they are called (`a = heavy(h)`,
     # `a.index`): pandas runs them, so their bodies stay pandas code (functions.learn_functions)
     pandas_functions: set[str] = field(default_factory=set)
+    # functions a statement kept on pandas as written calls (`df["c"] = helper(df)` aligned by
+    # pandas): their parameters take pandas values at every call, so their bodies are not
+    # ported for Polars frames or expressions (kept over all passes: it only grows)
+    pandas_called: set[str] = field(default_factory=set)
     # the module's frames each of the script's functions leaves to pandas code (functions.py)
     pandas_globals: dict[str, set[str]] = field(default_factory=dict)
     frames_kept: dict[str, set[str]] = field(default_factory=dict)  # those its body ports
@@ -646,6 +650,7 @@ class Evaluator:
         sites: list[SiteDraft] = []
         bound: dict[str, Value] = {}
         position = 0
+        handed = any(isinstance(v, PandasValue) for v in (*positional, *keywords.values()))
         for arg in node.args:
             # each argument is written from its own value (a keyword never stands in for a
             # positional argument, even when the call binds both to one name: pandas raises)
@@ -664,6 +669,7 @@ class Evaluator:
             elif is_pandas(value):
                 text = self.handed_to_unknown(value, node).code.text
                 sites += self.handed_to_unknown(value, node).sites[len(value.sites):]
+                handed = True
             else:
                 text = value.code.text
             parts.append(f"{arg.keyword.value}={text}" if arg.keyword else text)
@@ -690,7 +696,9 @@ class Evaluator:
                 return Column(code, frame=frame, name=name, dtype=returned.dtype, refs=refs,
                               versions=tuple((c, frame.version(c)) for c in sorted(refs)),
                               null_is_false=returned.null_is_false, sites=tuple(sites))
-        if isinstance(function.returns, Column | Scalar):
+        if isinstance(function.returns, Column | Scalar) or handed:
+            # (given pandas data, its body pandas code: what it returns may be a Series, which
+            # pandas aligns on its labels, never a constant pl.lit could hold)
             return PandasValue(code, sites=tuple(sites))
         return Opaque(code, sites=tuple(sites))
 

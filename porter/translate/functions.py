@@ -167,6 +167,8 @@ def learn_functions(services: Services, returns: dict[str, list[Value]],
                 continue  # the caller's frame changes: it is handed to pandas at each call
             if name in services.pandas_functions:
                 continue  # pandas code reads its result's row labels: it runs on pandas frames
+            if name in services.pandas_called:
+                continue  # a statement kept on pandas calls it: it is given pandas frames
             if kinds and all(isinstance(k, Frame) for k in kinds):
                 frame_params.add(param)
                 shapes = {(k.columns, tuple(sorted(k.dtypes))) for k in kinds}  # type: ignore[union-attr]
@@ -183,7 +185,11 @@ def learn_functions(services: Services, returns: dict[str, list[Value]],
         returned = returns.get(name, [])
         kinds_returned = returned_of.get(name, [])
         column_changes: dict[str, Any] = {}
-        if function.column_params:
+        if function.column_params and name in services.pandas_called:
+            # a statement kept on pandas calls it with pandas Series: no Polars expressions
+            column_changes = {"column_params": frozenset(), "column_dtypes": (),
+                              "not_expression": True}
+        elif function.column_params:
             # the body ran with columns bound to the parameters: it is an expression function
             # when it returned one column of them, and named nothing but such columns
             good = bool(returned) and all(isinstance(r, Column) for r in returned) \
@@ -194,7 +200,7 @@ def learn_functions(services: Services, returns: dict[str, list[Value]],
             if not good or set(columns) != set(function.column_params):
                 column_changes = {"column_params": frozenset(), "column_dtypes": (),
                                   "not_expression": True}
-        elif columns and not function.not_expression:
+        elif columns and not function.not_expression and name not in services.pandas_called:
             column_changes = {"column_params": frozenset(columns), "column_dtypes": tuple(
                 sorted(columns.items())), "column_rows": function.column_rows or fresh_token()}
         of = {k for k in kinds_returned}
