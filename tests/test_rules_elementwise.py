@@ -13,7 +13,7 @@ from __future__ import annotations
 import pytest
 
 from rule_checks import check_ports, check_todo, check_unchanged
-from support import convert, converted_text, differential
+from support import convert, converted_text, differential, same_text
 
 # NaN and None together, zero, negatives, duplicates, unicode text; t has no missing values.
 FRAME = """\
@@ -932,3 +932,16 @@ def test_map_dict_of_ints_leaving_a_value_out_is_float_once_filled(tmp_path) -> 
         df["m_f"] = df["queen"].map({"Y": 1}).fillna(0)
         df.to_csv("out.csv", index=False)
         """, tmp_path, {"hives.csv": "hive,queen\nH1,Y\nH2,N\nH3,Y\nH4,\n"})
+
+
+def test_pythons_round_without_digits_is_an_int(tmp_path) -> None:
+    """round(v) gives a Python int (half to even): pandas' column is int64, written 2 and 0
+    (not 2.0 or -0.0), also where a missing value is given a number first."""
+    same_text("""
+import pandas as pd
+df = pd.read_csv("orchard.csv")
+df["r0"] = df["kg"].fillna(0).map(lambda v: round(v))
+df["r1"] = df["kg"].apply(lambda v: -1 if pd.isna(v) else round(v * 2))
+df.to_csv("out.csv", index=False)
+print(df["r0"].tolist(), df["r1"].sum())
+""", tmp_path, {"orchard.csv": "row,kg\nA,0.285\nB,-0.5\nC,-2.5\nD,-0.05\nE,1e16\nF,\nG,2.5\n"})

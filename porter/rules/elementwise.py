@@ -434,14 +434,17 @@ def element_cast(call: PandasCall, ctx: RuleContext) -> Value:
 @rule("element.round", "element.abs")
 def element_number(call: PandasCall, ctx: RuleContext) -> Value:
     """round(x, n) / abs(x) in a lambda -> .round(n) / .abs(); Python's round of a float runs
-    on each value (map_elements): it rounds the exact binary value, which no expression does."""
+    on each value (map_elements): it rounds the exact binary value, which no expression does.
+    round(x) without digits is a Python int: .round(0) cast to Int64 (2, not 2.0 or -0.0)."""
     element = _element(call)
     if call.name == "abs":
         return _value(element, element.code.method("abs"), dtype=element.dtype)
     digits = call.const("ndigits", 0, None)
     if digits is None:
-        ctx.lower("round(x) without digits gives an int in Python, a float in Polars", 0.95)
-        return _value(element, element.code.method("round", 0), dtype="float")
+        # Python's round(x) is an int (half to even, as Polars rounds): 2, not 2.0 or -0.0
+        ctx.lower("round() of a missing value raises in pandas; Polars keeps it missing", 0.95)
+        code = element.code.method("round", 0).method("cast", emit.atom("pl.Int64"))
+        return replace(_value(element, code, dtype="int"), python_int=True)
     if not isinstance(digits, int) or digits < 0:
         raise Unsupported("negative digits")
     if element.dtype != "int":
