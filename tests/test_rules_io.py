@@ -1310,3 +1310,14 @@ def test_to_csv_handed_to_pandas_keeps_nullable_integers(tmp_path: Path) -> None
         df.to_csv("out.csv", index=False, float_format="%.2f")
         print(df["wk"].tolist())
         """, tmp_path, {"kiln.csv": KILN_CSV})
+
+
+def test_describe_to_csv_writes_the_unnamed_index_under_an_empty_header(tmp_path: Path) -> None:
+    # pandas writes describe()'s unnamed index under an empty header (",a"); Polars' writer
+    # quoted the empty name ('"",a')
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("ferry.csv")
+        df.describe().to_csv("desc.csv")
+        df[["knots"]].describe().to_csv("desc2.csv", sep=";")
+        """, tmp_path, {"ferry.csv": "knots,deck,route\n12,x,north\n,y,\n3.5,,south\n"})

@@ -539,7 +539,8 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     isocalendar()) as ints (2024); where porter does not know which columns are nullable (a
     frame back from pandas or built by a step that does not follow them, in a script that
     makes nullable integers) as ints (0.9); a missing value alone on its line (one column)
-    as "". With the default index=True on a
+    as "". describe()'s unnamed index is written by pandas (Polars quotes the empty header
+    name pandas writes as an empty field). With the default index=True on a
     plain frame the write is handed to pandas (with its sep, header, na_rep,
     encoding) so the row labels are written.
     """
@@ -564,6 +565,16 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower("index=True writes the row labels: handed over to pandas for the write", 1.0)
         # pandas writes the file itself, so every option it was given goes along (columns=
         # is the select above)
+        passed = {name: _plain_argument(call, name) for name in HANDED_OPTIONS if call.has(name)}
+        return Scalar(handover.to_pandas(frame).method("to_csv", target.code, **passed))
+    if index and frame.index_unnamed and len(frame.index) == 1 \
+            and call.const("header", None, True, kinds=(bool, list, tuple)) is not False:
+        # pandas writes an unnamed index (describe's statistics) under an empty header
+        # (",a"); Polars' writer quotes an empty column name ('"",a'): pandas writes the file
+        # (a table of a few rows)
+        ctx.handover = True
+        ctx.lower("the unnamed index is written under an empty header, which Polars quotes: "
+                  "handed over to pandas for the write", 1.0)
         passed = {name: _plain_argument(call, name) for name in HANDED_OPTIONS if call.has(name)}
         return Scalar(handover.to_pandas(frame).method("to_csv", target.code, **passed))
     frame = written_index(frame, bool(index))

@@ -122,6 +122,8 @@ def to_pandas(value: Value) -> Code:
         code = _as_pandas_made_them(code, value.dtypes, value.columns)
         if value.index:
             code = _labels(code, value)
+            if value.index_unnamed and len(value.index) == 1:
+                code = code.method("rename_axis", None)  # describe's statistics: no name
         if value.columns_name is not None:
             # a pivoted table's columns are named after its key (pandas keeps the name through
             # reset_index): stack, melt and print read it

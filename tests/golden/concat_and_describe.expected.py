@@ -33,23 +33,6 @@ def pandas_quantile(column, q):
     )
 
 
-# Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
-# writes 0.00005 and 1.5e-7; NaN as an empty field.
-PANDAS_CSV_FLOATS = (
-    pl.selectors.float().fill_nan(None).cast(pl.String)
-    .str.replace(r"e-(\d)$", "e-0${1}")
-    .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
-    .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
-)
-
-# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
-# pandas (2024.0), one without stays integer (2024).
-PANDAS_CSV_INTS = (
-    pl.when(pl.selectors.integer().null_count() > 0)
-    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
-    .otherwise(pl.selectors.integer().cast(pl.String))
-)
-
 spring = pl.scan_csv(
     "spring.csv",
     null_values=PANDAS_NA_VALUES,
@@ -98,14 +81,9 @@ stats = pl.concat([
 ])
 (
     stats
-    .rename({"index": ""})
-    .with_columns(
-        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
-        PANDAS_CSV_INTS,
-        PANDAS_CSV_FLOATS,
-        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
-        .cast(pl.String)
-        .replace("", None),
-    )
-    .sink_csv("season_stats.csv")
+    .collect()
+    .to_pandas()
+    .set_index("index")
+    .rename_axis(None)
+    .to_csv("season_stats.csv")
 )
