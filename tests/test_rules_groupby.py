@@ -1187,3 +1187,22 @@ def test_sum_of_a_float32_column_as_pandas_adds_it(tmp_path) -> None:
         print(df["x"].sum(), df["w"].sum(), df["v"].sum(), f"{df['x'].sum():.6f}")
         print(df[df["w"] > 100]["x"].sum())
     """, tmp_path, {"kilns.csv": "kiln,w\nA,1.005\nB,2.675\nC,0.125\nD,3.14159\nE,\nF,12.345678\n"})
+
+
+def test_groups_of_a_true_false_key_with_missing_values_kept_in_pandas_order(tmp_path) -> None:
+    # read_csv makes a True/False column with a gap an object column: pandas sorts its groups
+    # (dropna=False) as numpy sorts objects, NaN neither below nor above anything: NaN met
+    # between True and False stays there, NaN met first stays first
+    files = {"ferry.csv": "boat,late,pax\nA,True,1\nB,,2\nC,False,3\nD,True,4\n",
+             "ferry2.csv": "boat,late,pax\nA,,1\nB,True,2\nC,False,3\nD,,4\n"}
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("ferry.csv")
+        df.groupby("late", dropna=False)["pax"].sum().to_csv("one.csv")
+        df.groupby(["late", "boat"], dropna=False).agg(n=("pax", "size")).to_csv("two.csv")
+        df.groupby("late", dropna=False)["pax"].rolling(2, min_periods=1).sum().to_csv("w.csv")
+        print(df[df["pax"] > 1].groupby("late", dropna=False)["pax"].max().tolist())
+        df2 = pd.read_csv("ferry2.csv")
+        print(df2.groupby("late", dropna=False)["pax"].sum().tolist())
+        df2.groupby(["boat", "late"], dropna=False)["pax"].mean().to_csv("three.csv")
+    """, tmp_path, files)

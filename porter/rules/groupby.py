@@ -229,7 +229,14 @@ def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleCo
 
     `dtypes` are the aggregates' types where known (agg_dtype); the keys keep theirs."""
     _float_int_aggregates(grouped, exprs, ctx)
-    code = grouping_code(grouped).method("agg", *exprs)
+    order = group_order(grouped) if grouped.sort else None
+    if order is not None and grouped.prepared:
+        raise Unsupported("a True/False key with missing values kept (dropna=False) of a "
+                          "groupby bound to a name: pandas' order of its groups")
+    # with a True/False key whose missing values are kept, the groups in order of first
+    # appearance (maintain_order), which order_of_bool_key reads
+    code = grouping_code(grouped if order is None else replace(grouped, sort=False)) \
+        .method("agg", *exprs)
     kinds = dtypes or [None] * max(len(names), 1)
     if any(".sum()" in e.text and ".sum().cast(" not in e.text for e in exprs) \
             and any(t is None for t in kinds):
@@ -241,7 +248,7 @@ def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleCo
     if grouped.sort:
         # keys are unique after grouping, so the sort is total; a kept null key sorts last
         kwargs = {} if grouped.dropna else {"nulls_last": True}
-        code = code.method("sort", emit.names_arg(keys), **kwargs)
+        code = code.method("sort", emit.names_arg(keys) if order is None else order, **kwargs)
     columns = (*keys, *names)
     index = tuple(keys) if grouped.as_index else ()
     known = [(k, grouped.frame.dtype(k)) for k in keys]
@@ -256,6 +263,40 @@ def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleCo
         return Column(emit.col(name if name is not None else names[0]), frame=frame,
                       name=name, refs=frozenset(names), dtype=frame.dtype(names[0]))
     return frame
+
+
+def order_of_bool_key(key: str) -> Code:
+    """What to sort by so that a True/False key holding a missing value comes in pandas' order
+    of its groups (groupby(dropna=False, sort=True)), over rows in order of first appearance.
+
+    Such a column is an object column in pandas (True, False and NaN, as read_csv gives it),
+    and pandas sorts its distinct values as numpy sorts objects: an insertion sort of them in
+    order of first appearance, where NaN is neither below nor above anything. So NaN met first
+    stays first (NaN, False, True), NaN met last stays last (False, True, NaN), and NaN met
+    between the two keeps the order they were met in (True, NaN, False). Without a missing
+    value the column is pandas' bool: False before True."""
+    value = emit.col(key)
+    row = emit.pl("int_range", emit.pl("len"))
+    at_true, at_false, at_null = (row.method("filter", c).method("first") for c in (
+        value, value.method("not_"), value.method("is_null")))
+    as_int = value.method("cast", emit.atom("pl.Int8"))
+    met = emit.when(value, at_true).method("when", value.method("not_")).method(
+        "then", at_false).method("otherwise", at_null)
+    return emit.when(at_null.method("is_null"), as_int).method(
+        "when", emit.binop(at_null, "==", emit.pl("min_horizontal", at_true, at_false, at_null))
+    ).method("then", as_int.method("fill_null", -1)).method(
+        "when", emit.binop(at_null, "==", emit.pl("max_horizontal", at_true, at_false, at_null))
+    ).method("then", as_int.method("fill_null", 2)).method("otherwise", met)
+
+
+def group_order(grouped: Grouped) -> list[Code] | None:
+    """What to sort groups (or rows in order of first appearance) by, to have pandas' order
+    of the groups, where a key is True/False and missing keys are kept; None where sorting
+    by the keys with missing ones last gives it."""
+    if grouped.dropna or not any(grouped.frame.dtype(k) == "bool" for k in grouped.keys):
+        return None
+    return [order_of_bool_key(k) if grouped.frame.dtype(k) == "bool" else emit.col(k)
+            for k in grouped.keys]
 
 
 def _float_int_aggregates(grouped: Grouped, exprs: list[Code], ctx: RuleContext) -> None:

@@ -18,7 +18,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.elementwise import _checked, body_expression, function_value
-from porter.rules.groupby import agg_expr
+from porter.rules.groupby import agg_expr, group_order
 from porter.rules.io_options import QUANTILE_FUNCTION
 from porter.translate import handover
 from porter.translate.context import (
@@ -957,7 +957,10 @@ def _group_sorted(grouped: Grouped) -> Frame:
     if grouped.dropna:
         code = code.method("filter", _keys_present(grouped))
     if grouped.sort:
-        code = code.method("sort", emit.names_arg(grouped.keys), nulls_last=True, maintain_order=True)
+        # a True/False key with a missing value kept: pandas' order of its groups (group_order)
+        order = group_order(grouped)
+        code = code.method("sort", emit.names_arg(grouped.keys) if order is None else order,
+                           nulls_last=True, maintain_order=True)
     else:  # each group where its first row is: the smallest row number of the group
         code = code.method("with_row_index", ROW_NUMBER).method(
             "sort", _over(grouped, emit.col(ROW_NUMBER).method("min")), maintain_order=True
