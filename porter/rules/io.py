@@ -87,6 +87,8 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     Caveats: index_col, header/names, converters, encodings other than UTF-8, a list of
     skipped rows and keep_default_na=False are TODOs; na_values per column needs --data (or a
     dtype= for those columns). With nrows, Polars still infers types from the whole file (0.9).
+    Integers beyond int64 beside a negative value or a blank (text in pandas, Int128 in
+    Polars) are a TODO when --data shows them.
     parse_dates follows pandas' guess of one format from the first value (05/03/2024 month
     first): with --data made at convert time from the sample and written out (0.9), else made
     at run time by pandas_to_datetime (0.8); a value that does not fit stops the script where
@@ -189,9 +191,12 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                   "as one (007 becomes 7), Polars' Categorical keeps the text (--data would "
                   "tell)", 0.9)
     for column in getattr(schema, "wide_ints", ()):
-        ctx.lower(f"column {column!r} holds integers beyond int64: pandas reads them as text "
-                  "or as Python ints (object), Polars as Int128, which does not go to numpy or "
-                  "pandas (tolist, a hand-over fails)", 0.7)
+        # pandas reads a column of integers beyond int64 as uint64 only when every value is
+        # from 0 to 2**64 - 1 and none is missing (porter reads those UInt64); with a negative
+        # value or a blank it reads text (a blank is "", not missing)
+        raise ctx.todo(f"column {column!r} holds integers beyond int64 beside a negative value "
+                       "or a blank: pandas reads it as text (a blank as \"\"), Polars as "
+                       "Int128, which does not go to numpy or pandas; the read stays pandas'")
     if getattr(schema, "no_rows", False):
         # the types read from a file of a header only say nothing (every column is text to
         # Polars); pandas reads such columns as object: a sum is 0 and max/mean NaN there, text
