@@ -10,7 +10,7 @@ from __future__ import annotations
 import pytest
 
 from rule_checks import check_ports, check_todo, check_unchanged
-from support import convert, differential
+from support import convert, differential, same_text
 
 # Zeros in both numerator and divisor, NaN and None together, negative numbers, booleans,
 # unicode text.
@@ -549,3 +549,35 @@ df["c_nan"] = df["minutes"].clip(none["minutes"].min(), 1)
 df["c_nan2"] = df["minutes"].clip(hi, none["minutes"].min())
 result = df
 """, data_dir=str(tmp_path))
+
+
+def test_arithmetic_with_nan_is_a_float_column(tmp_path) -> None:
+    """x * np.nan on an integer column: pandas makes a float column of NaN, so a fill writes
+    -9.0 and the sum is 0.0 (Polars' x * None stays an integer column of missing values)."""
+    same_text("""
+import numpy as np
+import pandas as pd
+df = pd.read_csv("hive.csv")
+df["r"] = df["frames"] * np.nan
+df["r2"] = float("nan") - df["frames"]
+df["r3"] = df["frames"] // np.nan
+print(df["r"].fillna(-9).tolist(), df["r"].sum(), df["r2"].fillna(-9).tolist())
+df.fillna(-9).to_csv("out.csv", index=False)
+""", tmp_path, {"hive.csv": "hive,frames\nH1,-1\nH2,4\nH3,9\n"})
+
+
+@pytest.mark.parametrize("expr, reason", [
+    pytest.param("lambda v: v ** 0.5", "complex", id="fraction power of a negative number"),
+    pytest.param("lambda v: 2 ** v", "negative whole number", id="whole number to a negative power"),
+])
+def test_pythons_power_in_a_lambda_lowers_confidence(expr: str, reason: str) -> None:
+    # Python's (-4) ** 0.5 is complex (pandas' column is complex128) and 2 ** -2 a float;
+    # the expression gives a missing value and a failing cast
+    result = convert(FRAME + f'df["r"] = df["i"].map({expr})\n')
+    site = next(s for s in result.sites if s.key == "series.map")
+    assert site.confidence == 0.9 and reason in site.message, site.message
+
+
+def test_pythons_power_of_a_positive_base_keeps_its_confidence() -> None:
+    result = convert(FRAME + 'df["r"] = df["i"].map(lambda v: v ** 2)\ndf["t"] = df["a"].map(lambda v: 2 ** v)\n')
+    assert all(s.confidence > 0.9 for s in result.sites if s.key == "series.map")

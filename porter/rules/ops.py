@@ -56,7 +56,8 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
     unknown-type column, stored from a division or read from the data, or an inf constant);
     integer and boolean operands and finite constants need nothing; an operand that is a
     Timedelta goes to datetimes.timedelta_arithmetic; text times a whole number repeats it
-    (_repeated_text).
+    (_repeated_text); a number column and NaN (x * np.nan) make a float column of missing
+    values, as pandas makes one of NaN.
     Caveats: two operands of unknown type (a + b without --data) may be text or dates, where
     fill_nan fails: left out, confidence 0.95 (for - and * only when the script makes no
     datetimes).
@@ -74,6 +75,13 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
     dtype: str | None = None
     if op == "+" and ltype == rtype == "bool":
         return derived_column(column, emit.binop(lcode, "|", rcode), dtype="bool", others=[left, right])
+    if op in ("+", "-", "*", "/", "//", "%") and any(_is_nan_constant(v) for v in (left, right)) \
+            and {ltype, rtype} <= {"int", "float", "bool", None}:
+        # x * np.nan is NaN for every row, a float column in pandas (Polars' x * None stays an
+        # integer column of missing values: fillna(-9) would write -9, not -9.0)
+        code = emit.pl("repeat", None, emit.pl("len"), dtype=emit.atom("pl.Float64"))
+        return derived_column(column, code, dtype="float", others=[left, right],
+                              name=_result_name(left, right))
     if ltype == "duration" and op in ("/", "*") or rtype == "duration" and op == "*":
         # durations scaled by numbers stay durations; a duration over a duration is a float
         # (NaN for 0 / 0, missing in pandas); pandas_div and fill_nan take numbers only
@@ -154,6 +162,8 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
         if op == "**":
             code = _power(left, right, lcode, rcode, ctx).method("fill_nan", None)
             ctx.lower("a negative base to a fractional power is NaN in both (made missing here)", 0.98)
+            if column.element:
+                _python_power_caveats(left, right, ctx)
     else:
         raise Unsupported(f"operator {op} on columns")
     if _is_str_literal(left) and op == "+":
@@ -214,6 +224,22 @@ def _power(left: Value, right: Value, lcode: Code, rcode: Code, ctx: RuleContext
     return emit.binop(operands[0], "**", operands[1])
 
 
+def _python_power_caveats(left: Value, right: Value, ctx: RuleContext) -> None:
+    """a ** b in a lambda is Python's power of each value, not numpy's of the column."""
+    if value_dtype(right) != "int" and not (isinstance(right, Opaque) and isinstance(right.const, int)
+                                            or isinstance(right, Opaque) and isinstance(right.const, float)
+                                            and right.const.is_integer()) \
+            and value_dtype(left) != "bool" \
+            and not (_number_const(left) and left.const >= 0):  # type: ignore[union-attr]
+        ctx.lower("Python's power of a negative number to a fraction ((-4) ** 0.5) is a complex "
+                  "number, so pandas' column is complex; here it is a missing value", 0.9)
+    if isinstance(right, Column) and value_dtype(right) in ("int", None) \
+            and value_dtype(left) in ("int", None):
+        ctx.lower("Python's power of a whole number to a negative whole number (2 ** -2) is a "
+                  "float (0.25) and pandas' column float; Polars refuses a negative integer "
+                  "exponent and the script fails", 0.9)
+
+
 _ARITHMETIC = (ast.Add, ast.Sub, ast.Mult, ast.Div)
 
 
@@ -234,6 +260,10 @@ def _nan_unfilled(code: Code) -> Code:
             and code.base == inner:
         return Code(inner)
     return code
+
+
+def _is_nan_constant(value: Value) -> bool:
+    return isinstance(value, Opaque) and isinstance(value.const, float) and math.isnan(value.const)
 
 
 def _single_divisor(value: Value) -> bool:
