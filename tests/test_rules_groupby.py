@@ -1206,3 +1206,22 @@ def test_groups_of_a_true_false_key_with_missing_values_kept_in_pandas_order(tmp
         print(df2.groupby("late", dropna=False)["pax"].sum().tolist())
         df2.groupby(["boat", "late"], dropna=False)["pax"].mean().to_csv("three.csv")
     """, tmp_path, files)
+
+
+def test_group_sums_of_a_true_false_column_as_read_say_pandas_may_keep_a_lone_value(tmp_path) -> None:
+    # read_csv makes a True/False column with a gap an object column: pandas' group sum of a
+    # group holding only False is False (Python's sum from the first value), porter's 0
+    (tmp_path / "orchard.csv").write_text("row,late,kg\nA,True,2.5\nB,,4.0\nC,False,3.5\n")
+    result = convert("""
+        import pandas as pd
+        df = pd.read_csv("orchard.csv")
+        a = df.groupby("row")["late"].sum()
+        b = df.groupby("row").agg(n=("late", "sum"), kg=("kg", "sum"))
+        df["heavy"] = df["kg"] > 3
+        c = df.groupby("row")["heavy"].sum()
+    """, data_dir=str(tmp_path))
+    sites = {(s.line, s.key): s for s in result.sites}
+    assert sites[(4, "groupby.sum")].confidence <= 0.9
+    assert "object column" in sites[(4, "groupby.sum")].message
+    assert sites[(5, "groupby.agg")].confidence <= 0.9
+    assert sites[(7, "groupby.sum")].confidence == 1.0

@@ -229,6 +229,7 @@ def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleCo
 
     `dtypes` are the aggregates' types where known (agg_dtype); the keys keep theirs."""
     _float_int_aggregates(grouped, exprs, ctx)
+    _object_bool_sums(grouped, exprs, ctx)
     order = group_order(grouped) if grouped.sort else None
     if order is not None and grouped.prepared:
         raise Unsupported("a True/False key with missing values kept (dropna=False) of a "
@@ -297,6 +298,26 @@ def group_order(grouped: Grouped) -> list[Code] | None:
         return None
     return [order_of_bool_key(k) if grouped.frame.dtype(k) == "bool" else emit.col(k)
             for k in grouped.keys]
+
+
+def _object_bool_sums(grouped: Grouped, exprs: list[Code], ctx: RuleContext) -> None:
+    """The group sums of a True/False column as read (not one the script computed): with a
+    missing value anywhere in the file, pandas holds it as an object column, whose group sum
+    is Python's sum from the group's first value: a group of one value keeps it (True, False),
+    mixed with the counts of the others; porter counts the True values (1, 0)."""
+    for name in target_columns_of(grouped, exprs):
+        if grouped.frame.dtype(name) == "bool" and grouped.frame.version(name) == 0 \
+                and any(e.text.startswith(agg_expr(emit.col(name), "sum", "bool").text)
+                        for e in exprs):
+            ctx.lower(f"`{name}` is an object column in pandas where it has a missing value "
+                      "(read_csv): its group sums keep a group's lone value as True/False, "
+                      "where porter counts the True values (1, 0)", 0.9)
+
+
+def target_columns_of(grouped: Grouped, exprs: list[Code]) -> list[str]:
+    """The frame's columns named in the aggregations `exprs`."""
+    columns = grouped.frame.columns or ()
+    return [c for c in columns if any(emit.col(c).text in e.text for e in exprs)]
 
 
 def _float_int_aggregates(grouped: Grouped, exprs: list[Code], ctx: RuleContext) -> None:
