@@ -843,3 +843,22 @@ def test_describe_percentiles_are_numpys_to_the_last_bit() -> None:
     for row in ("25%", "50%", "75%"):
         got = actual.filter(pl.col("index") == row).drop("index").row(0)
         assert _signed(list(got)) == _signed(expected.loc[row].tolist()), row
+
+
+def test_running_sum_of_a_true_false_column_as_read_says_pandas_keeps_an_object(tmp_path) -> None:
+    # read_csv makes a True/False column with a gap an object column: its cumsum keeps the
+    # first value (True, NaN, 1.0, 2.0), and within groups pandas refuses it (TypeError)
+    (tmp_path / "kiln.csv").write_text("kiln,cracked,t\nA,True,1\nB,,2\nA,False,3\nB,True,4\n")
+    result = convert("""
+        import pandas as pd
+        df = pd.read_csv("kiln.csv")
+        df["cs"] = df["cracked"].cumsum()
+        df["gs"] = df.groupby("kiln")["cracked"].cumsum()
+        df["hot"] = df["t"] > 2
+        df["hs"] = df["hot"].cumsum()
+    """, data_dir=str(tmp_path))
+    sites = {(s.line, s.key): s for s in result.sites}
+    assert sites[(4, "series.cumsum")].confidence <= 0.9
+    assert "object column" in sites[(4, "series.cumsum")].message
+    assert sites[(5, "groupby.cumsum")].confidence <= 0.9
+    assert sites[(7, "series.cumsum")].confidence == 1.0

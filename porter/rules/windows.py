@@ -145,7 +145,19 @@ def cumulative(call: PandasCall, ctx: RuleContext) -> Value:
     code = ctx.bool_expr(column, column.frame) if column.dtype == "bool" else column.code
     if column.dtype == "bool" and call.name == "cumsum":
         code = code.method("cast", emit.atom("pl.Int64"))
+        if _as_read(column):
+            ctx.lower(f"`{column.name}` is an object column in pandas where it has a missing "
+                      "value (read_csv): its running sum keeps the first value as True/False "
+                      "and is float after the first missing value (True, NaN, 1.0, 2.0), where "
+                      "porter counts the True values as integers", 0.9)
     return derived_column(column, code.method(CUMULATIVE[call.name]), dtype=column.dtype)
+
+
+def _as_read(column: Column) -> bool:
+    """A column as read from a file, not one the script wrote: a True/False one may hold a
+    missing value, which makes it an object column in pandas."""
+    return column.name is not None and column.code.text == emit.col(column.name).text \
+        and column.frame.version(column.name) == 0
 
 
 # -- within groups ------------------------------------------------------------------------------
@@ -419,6 +431,10 @@ def group_cumulative(call: PandasCall, ctx: RuleContext) -> Value:
     if column.dtype == "bool" and call.name != "cumsum":
         raise Unsupported("a running product, maximum or minimum of booleans")
     if column.dtype == "bool":
+        if _as_read(column):
+            ctx.lower(f"`{column.name}` is an object column in pandas where it has a missing "
+                      "value (read_csv), whose running sum within groups pandas refuses "
+                      "(TypeError); porter counts the True values", 0.9)
         # True counted as 1 (pandas' int64; float64 where a key is missing, the same values)
         running = ctx.bool_expr(column, grouped.frame).method(
             "cast", emit.atom("pl.Int64")).method("cum_sum")
