@@ -1082,3 +1082,30 @@ out = df
 out["c"] = {use}
 frame = out
 """, "frame")
+
+
+# a ferry line's crossings: `cars` is whole numbers with none missing, `wait` has a missing one
+FERRY = "quay,cars,wait\nnorth,4,1.5\nsouth,2,\neast,3,2.5\n"
+
+
+@pytest.mark.parametrize("made", [
+    'df["wait"].fillna(True)',
+    'df["wait"].fillna("none")',
+    'df["wait"].where(df["wait"] > 2, "short")',
+    'df["quay"].where(df["cars"] > 2, 0)',
+    'df.apply(lambda r: (r["quay"], r["wait"]), axis=1)',
+])
+def test_a_frame_given_values_polars_has_no_type_for_stays_pandas_after_a_hand_over(made: str) -> None:
+    # the frame was handed over (the Categorical) and waits to come back: a mixed or tuple
+    # column keeps it on pandas, as it does a frame never handed over (pl.from_pandas made
+    # True 1.0, or failed on the text)
+    Path("ferry.csv").write_text(FERRY)
+    differential(f"""
+import pandas as pd
+df = pd.read_csv("ferry.csv")
+df["q"] = pd.Categorical(df["quay"])
+df["m"] = {made}
+df["u"] = df["quay"].str.upper()
+shown = repr(df["m"].tolist())
+written = df.to_csv(index=False)
+""", "shown", "written", data_dir=".")

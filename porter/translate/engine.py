@@ -834,7 +834,7 @@ class _Walker:
         waiting = {n: v for n, v in env.items() if isinstance(v, PandasValue) and v.frame is not None}
         text, sites = back if back is not None else self.rewrite_small(stmt, env, indent)
         if back is None:
-            self.still_on_pandas(stmt, env, waiting)
+            self.still_on_pandas(stmt, env, waiting, [*sites, *blocking])
             # the calls that keep a handed-over frame on pandas are marked, as they would be
             # on a Polars frame: the statement is not left on pandas silently
             sites = [*sites, *(s for s in blocking if s not in sites)]
@@ -843,10 +843,14 @@ class _Walker:
         return text, sites
 
     def still_on_pandas(self, stmt: cst.BaseSmallStatement, env: dict[str, Value],
-                        waiting: dict[str, PandasValue]) -> None:
+                        waiting: dict[str, PandasValue], sites: list[SiteDraft] = ()) -> None:  # type: ignore[assignment]
         """A statement kept on pandas that changes a frame waiting to come back to Polars
         (`df["c"] = ...` on the handed-over frame): what porter knows of it follows the change,
-        so the frame comes back with every column pandas gave it."""
+        so the frame comes back with every column pandas gave it. A change that gives it values
+        Polars has no type for (a mixed column, tuples, Intervals: `sites` says so) keeps it
+        on pandas, as bind_changed keeps a Polars frame given them."""
+        stays = any(site.key in INTERVAL_MAKERS for site in sites) or any(
+            site.key == "frame.setitem" and FRAME_STAYS_PANDAS in site.message for site in sites)
         changed = [_root_and_path(t) for t in _changed_targets(stmt)] + _mutating_calls(stmt)
         for name, what in changed:
             before = waiting.get(name) if name is not None else None
@@ -854,7 +858,7 @@ class _Walker:
                 continue  # not waiting, or rebound by the statement itself
             assert name is not None
             what = "" if what in ("setitem", "loc", "iloc") else what
-            env[name] = PandasValue(emit.atom(name), frame=_after_change(
+            env[name] = PandasValue(emit.atom(name), frame=None if stays else _after_change(
                 name, before.frame, stmt, what, self.dtype_names, self.period_names))
 
     def back_to_polars(self, stmt: cst.BaseSmallStatement, env: dict[str, Value], indent: str
