@@ -684,16 +684,17 @@ kinds = [type(df["v"].sum()).__name__, type(df["n"].sum()).__name__, type(df["v"
 """, "avg", "rate", "mean", "tot", "share", "kinds")
 
 
-def test_max_of_a_datetime_column_is_flagged() -> None:
-    # pandas gives a Timestamp (day_name(), quarter...), the converted code a datetime.datetime
-    result = convert("""
+def test_max_of_a_datetime_column_is_a_timestamp() -> None:
+    # pandas gives a Timestamp (day_name(), quarter, normalize()...): so does the conversion
+    result = differential("""
 import pandas as pd
-df = pd.DataFrame({"t": ["2024-01-31", "2024-02-29"]})
+df = pd.DataFrame({"t": ["2024-01-31 10:30", "2024-02-29 08:00"]})
 df["d"] = pd.to_datetime(df["t"])
 last = df["d"].max()
+result = [last.day_name(), last.quarter, str(last.normalize()), str(last), last.dayofyear]
 """)
     site = next(s for s in result.sites if s.key == "series.max")
-    assert site.confidence <= 0.9 and "Timestamp" in site.message
+    assert site.confidence == 1.0
 
 
 def test_sums_of_a_true_false_column_of_unknown_type_do_not_wrap(tmp_path, monkeypatch) -> None:
@@ -1225,3 +1226,21 @@ def test_group_sums_of_a_true_false_column_as_read_say_pandas_may_keep_a_lone_va
     assert "object column" in sites[(4, "groupby.sum")].message
     assert sites[(5, "groupby.agg")].confidence <= 0.9
     assert sites[(7, "groupby.sum")].confidence == 1.0
+
+
+def test_min_max_of_no_text_or_dates_are_pandas_nan_and_nat(tmp_path) -> None:
+    # an empty selection or only missing values: pandas gives nan for text and NaT for dates
+    # (and max - min is NaT), where item() gave None and None - None failed
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("glass.csv")
+        df["d"] = pd.to_datetime(df["d"], format="%Y-%m-%d")
+        e = df[df["x"] > 100]
+        print("max s:", e["s"].max(), "min s:", e["s"].min(), df[df["x"] == 2]["s"].max())
+        print("max d:", e["d"].max(), "min d:", df[df["x"] == 2]["d"].min())
+        print("span", e["d"].max() - e["d"].min(), df["d"].max() - df["d"].min())
+        print(df["s"].max(), df["d"].max(), df["d"].max().year, f"{df['d'].min():%Y-%m}")
+        df["gap"] = (df["d"].max() - df["d"]).dt.days
+        df["first"] = df["s"] == df["s"].min()
+        df.to_csv("o.csv", index=False)
+    """, tmp_path, {"glass.csv": "s,x,d\nab,1,2024-01-01\n,2,\ncd,3,2024-02-01\n"})

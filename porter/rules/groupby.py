@@ -561,8 +561,9 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
     Numbers and True/False are numpy's (np.int64, np.float64, np.bool_), as pandas gives
     them: the min/max of no integers is NaN, ~ of any() is its negation, a zero max divides
     to inf.
-    The min/max of a column of unknown type (named by a loop variable) is pandas' value
-    through to_pandas(): nan for no values, a Timestamp for a date.
+    The min/max of a column of unknown type (named by a loop variable), of text or of dates
+    is pandas' value through to_pandas(): nan for no values (NaT for dates), a Timestamp for
+    a date.
     Caveats: the min/max of no values of a boolean column (or one of unknown type holding
     True/False) is NaN in pandas and None here (a NaN fill would make every result float)
     (0.98); the mean of a column of
@@ -604,11 +605,18 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         expr = agg_expr(code, how, "str")
     else:
         expr = code.method(how)
-    if how in ("min", "max") and column.dtype == "datetime":
-        # a Python datetime where pandas gives a Timestamp: day_name(), quarter and the like
-        # are written with the datetime's own (evaluate.py); others still differ (lowered)
-        _nan_when_empty(column, how, expr, ctx)
-        return replace(scalar_of(column, expr), pytype="datetime")
+    if how in ("min", "max") and column.dtype in ("datetime", "str"):
+        # pandas' value through to_pandas(): a pd.Timestamp, or NaT where there are no values
+        # (an empty selection, only missing ones), where item() gave None (printed "None", and
+        # max - min failed); text as is, NaN for no text
+        value = column.frame.code.method("select", expr).method("collect").method(
+            "to_series").method("to_pandas").attr("iloc").index(0)
+        agg_column = Column(expr, frame=column.frame, name=column.name, refs=column.refs,
+                            versions=column.versions)
+        # day_name(), quarter and the like are written with the datetime's own (evaluate.py),
+        # which a Timestamp has too
+        return Scalar(value, pytype="datetime" if column.dtype == "datetime" else None,
+                      agg=agg_column)
     if column.float_int is not None and column.dtype == "int" and how in ("sum", "min", "max"):
         return _float_int_reduction(column, code, expr)
     if how == "sum" and column.dtype == "float" and not column.element \
