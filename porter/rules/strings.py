@@ -175,9 +175,52 @@ def polars_regex(pattern: str, flags: int, ctx: RuleContext, *, test: bool) -> s
     if issues:
         raise ctx.todo(f"the pattern {pattern!r} does not mean the same in Polars' regex "
                        f"engine ({'; '.join(issues)})")
-    if re.search(r"(?<!\\)(?:\\\\)*\\[sS]", pattern):
-        ctx.lower(r"\s: Python also counts \x1c-\x1f as whitespace", 0.98)
-    return pattern
+    if _P.parse(pattern, flags).state.flags & re.ASCII:
+        if re.search(r"(?<!\\)(?:\\\\)*\\[wWsSdDbB]", pattern):
+            raise ctx.todo(r"\w, \s, \d and \b of an ASCII-only pattern ((?a)) mean every "
+                           "Unicode letter, space and digit in Polars' regex engine")
+        return pattern
+    if re.search(r"(?<!\\)(?:\\\\)*\\[bB]", pattern):
+        ctx.lower(r"\b: a word boundary next to ², ³, ½ (numbers other than digits, word "
+                  r"characters to Python), a combining accent or ‿ (word characters to Polars' "
+                  r"regex engine) is found by one engine and not the other", 0.95)
+    return python_classes(pattern)
+
+
+# Python's \w is a letter, a number of any kind (², ½ too) or _: \p{L}\p{N}_ exactly (Rust's
+# \w takes combining marks and connector punctuation, and no ², ½); Python's \s also holds
+# \x1c-\x1f, Rust's does not. \d is a decimal digit (\p{Nd}) in both. Outside a class and
+# inside one:
+_PYTHON_CLASSES = {
+    "w": (r"[\p{L}\p{N}_]", r"\p{L}\p{N}_"),
+    "W": (r"[^\p{L}\p{N}_]", r"[^\p{L}\p{N}_]"),
+    "s": (r"[\s\x1c-\x1f]", r"\s\x1c-\x1f"),
+    "S": (r"[^\s\x1c-\x1f]", r"[^\s\x1c-\x1f]"),
+}
+
+
+def python_classes(pattern: str) -> str:
+    """`pattern` with \\w, \\W, \\s and \\S written as the classes Python's re means by them."""
+    out: list[str] = []
+    i, inside = 0, False
+    while i < len(pattern):
+        ch = pattern[i]
+        if ch == "\\" and i + 1 < len(pattern):
+            nxt = pattern[i + 1]
+            out.append(_PYTHON_CLASSES[nxt][inside] if nxt in _PYTHON_CLASSES else ch + nxt)
+            i += 2
+            continue
+        out.append(ch)
+        i += 1
+        if ch == "[" and not inside:
+            inside = True
+            for opening in ("^", "]"):  # [^...] and a ] first in the class is a ]
+                if pattern[i:i + 1] == opening:
+                    out.append(opening)
+                    i += 1
+        elif ch == "]" and inside:
+            inside = False
+    return "".join(out)
 
 
 def _only_final_dollar(pattern: str, flags: int) -> bool:
@@ -491,9 +534,11 @@ def contains(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: a regex by default, checked for Python-only features (T12); case=False and
     flags=re.I/M/S as inline flags; regex=False as a literal (pandas then ignores flags); a
-    missing value is False or `na`; a final $ also matches before a final newline, as in Python.
+    missing value is False or `na`; a final $ also matches before a final newline, as in Python;
+    \\w, \\W, \\s, \\S written as the classes Python means by them (polars_regex).
     Caveats: lookarounds, backreferences, \\< \\>, nested sets and a $ that is not the last
-    character are TODOs; \\s lowers confidence (0.98).
+    character are TODOs; \\b lowers confidence (0.95): a word boundary next to ², ½, a combining
+    accent or ‿ differs.
     """
     column = text_column(call, ctx)
     ctx.reject_unknown(call, "pat", "case", "flags", "na", "regex", positional=5)
@@ -579,7 +624,7 @@ def replace(call: PandasCall, ctx: RuleContext) -> Value:
         if n == 0 or n > 1:  # n=0 replaces nothing or everything, depending on pandas' path
             raise ctx.todo(f"a regex replacement with n={n}: Polars replaces the first or all")
         source = polars_regex(pat if regex else re.escape(pat), flags, ctx, test=False)
-        groups = re.compile(source, flags).groups
+        groups = re.compile(pat if regex else re.escape(pat), flags).groups
         args = (inline_flags(flags) + source, polars_template(repl, groups, ctx))
         options = {}
     if n < 0:
@@ -731,13 +776,14 @@ def split(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: a one-character separator as text; a longer one (or regex=True) is a regex in
     pandas: as text when it has no metacharacters, otherwise str.split(pat, literal=False)
     (re.split and Polars split alike at matches that cannot be empty, with no groups); no
-    separator splits on runs of whitespace as Python's str.split() (str.extract_all(r"\\S+"):
-    none for an empty or blank string); n=k keeps the rest in the last (first, for rsplit)
-    part; a missing value stays missing; a subscript of the expanded frame is missing where a
-    row has fewer parts, as in pandas.
+    separator splits on runs of whitespace as Python's str.split() (str.extract_all of runs of
+    what is not Python's whitespace, \\x1c-\\x1f being some: none for an empty or blank
+    string); n=k keeps the rest in the last (first, for rsplit) part; a missing value stays
+    missing; a subscript of the expanded frame is missing where a row has fewer parts, as in
+    pandas.
     Caveats: a regex separator with groups, that can match empty text or with n, whitespace
     with n, and reading the expanded frame as a whole (its width is the parts of the longest
-    row) are TODOs; \\x1c-\\x1f separate words in Python and not in Polars (0.98).
+    row) are TODOs.
     """
     column = text_column(call, ctx)
     known = ("pat", "n", "expand", "regex") if call.name == "split" else ("pat", "n", "expand")
@@ -754,8 +800,8 @@ def split(call: PandasCall, ctx: RuleContext) -> Value:
         if n is not None:
             raise ctx.todo("splitting on whitespace with n: Python keeps the rest with its own "
                            "spacing")
-        ctx.lower("whitespace: Python also splits on \\x1c-\\x1f, Polars does not", 0.98)
-        parts = text.method("extract_all", r"\S+")
+        # Python's whitespace: \x1c-\x1f too (Polars' \S takes them for text)
+        parts = text.method("extract_all", python_classes(r"\S+"))
     else:
         parts = text.method("split", sep)
         if n is not None:
@@ -789,9 +835,9 @@ def extract(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: pandas' labels 0, 1, … for unnamed groups and the name of a named one (Polars
     names fields "1", "2", … and by name); no match, a missing value and a group that took no
     part are missing in both; an empty match is ""; flags as inline flags; a final $ matches
-    before a final newline, as in Python.
-    Caveats: Python-only regex features (lookaround, backreferences…) are TODOs; \\s lowers
-    confidence (0.98).
+    before a final newline, as in Python; \\w, \\W, \\s, \\S as Python means them.
+    Caveats: Python-only regex features (lookaround, backreferences…) are TODOs; \\b lowers
+    confidence (0.95).
     """
     column = text_column(call, ctx)
     ctx.reject_unknown(call, "pat", "flags", "expand", positional=3)

@@ -277,7 +277,9 @@ tags = tags.with_columns(harvester=pl.col("harvester").str.strip_chars())
 # split the hand-written tag into its parts
 parts = (
     pl.col("tag").str
-    .extract_groups("^\\s*[Ll](\\d+)-([A-Ca-c])(?:/[Ww](\\d+))?\\s*\\n?$")
+    .extract_groups(
+        "^[\\s\\x1c-\\x1f]*[Ll](\\d+)-([A-Ca-c])(?:/[Ww](\\d+))?[\\s\\x1c-\\x1f]*\\n?$",
+    )
 )
 tags = tags.with_columns(line=pl.lit("L") + parts.struct.field("1").str.zfill(2))
 tags = tags.with_columns(
