@@ -1089,6 +1089,29 @@ FERRY = "quay,cars,wait\nnorth,4,1.5\nsouth,2,\neast,3,2.5\n"
 
 
 @pytest.mark.parametrize("made", [
+    'df["cars"].where(df["cars"] > 2, "few")',
+    'df["cars"].where(df["cars"] > 2, False)',
+    'df["cars"].mask(df["cars"] > 2, True)',
+    'df["cars"].mask(df["cars"] > 2, "many")',
+    'df["cars"].replace(4, "four")',
+    'df["cars"].replace({4: "four", 2: None})',
+])
+def test_an_int_columns_type_is_known_after_a_hand_over(made: str) -> None:
+    # the Categorical is pandas' (the frame goes over and comes back): `cars` is still an
+    # integer column, so text or True/False put into it makes pandas' mixed column, which
+    # stays pandas (Polars made the ints text, or 1 for True)
+    Path("ferry.csv").write_text(FERRY)
+    differential(f"""
+import pandas as pd
+df = pd.read_csv("ferry.csv")
+df["q"] = pd.Categorical(df["quay"])
+df["m"] = {made}
+shown = repr(df["m"].tolist())
+written = df.to_csv(index=False)
+""", "shown", "written", data_dir=".")
+
+
+@pytest.mark.parametrize("made", [
     'df["wait"].fillna(True)',
     'df["wait"].fillna("none")',
     'df["wait"].where(df["wait"] > 2, "short")',

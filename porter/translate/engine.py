@@ -4,6 +4,7 @@ rewritten statements (with TODO markers) back into the module."""
 from __future__ import annotations
 
 import ast
+import builtins
 import textwrap
 from dataclasses import dataclass, field, replace
 from collections.abc import Callable
@@ -1991,6 +1992,7 @@ def _names_read(text: str) -> list[str]:
 # porter's column types that pl.from_pandas(df.to_pandas()) gives back as they were (an int
 # column with a missing value comes back float, a date comes back a datetime)
 _ROUND_TRIP_TYPES = frozenset({"bool", "str", "float", "datetime", "duration", "category", "enum"})
+_BUILTIN_NAMES = frozenset(dir(builtins))
 # changes in place that leave the other columns' values as they were
 _KEEPS_OTHER_TYPES = frozenset({"pop", "__delitem__", "insert", "drop", "dropna", "drop_duplicates",
                                 "sort_values", "sort_index"})
@@ -2030,16 +2032,27 @@ def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
         last = target.slice[-1].slice
         if isinstance(last, cst.Index) and isinstance(last.value, cst.SimpleString):
             key = last.value.evaluated_value
+    # the other columns keep their values and rows: an integer column comes back as it went
+    # (_from_pandas casts it back: float64 in pandas where it holds a missing value), unless a
+    # step left it float64 in pandas, or the statement may change it too (a method that
+    # changes a frame in place, a function of the script's): the cast would cut 2.5 to 2
+    float_ints = {c for c, _ in frame.float_ints}
+    kept = _ROUND_TRIP_TYPES
+    if statement is not None and not _mutating_calls(statement) and all(
+            name in _BUILTIN_NAMES for name in _called_names(cst.Module([]).code_for_node(statement))):
+        kept = kept | {"int"}
     if isinstance(key, str) and frame.columns is not None:
         # `df["c"] = ...` / `df.loc[m, "c"] = ...`: one column made or changed
         columns = frame.columns if key in frame.columns else (*frame.columns, key)
-        dtypes = tuple((c, t) for c, t in frame.dtypes if c != key and t in _ROUND_TRIP_TYPES)
+        dtypes = tuple((c, t) for c, t in frame.dtypes
+                       if c != key and t in kept and c not in float_ints)
     keys = _written_names(target) if key is None and frame.columns is not None else None
     if keys:
         # `df[["a", "b"]] = ...` / `df.loc[m, ["x", "b"]] = 0`: those columns made or changed
         # (pandas adds the new ones at the end, in the order written)
         columns = (*frame.columns, *(k for k in dict.fromkeys(keys) if k not in frame.columns))  # type: ignore[misc]
-        dtypes = tuple((c, t) for c, t in frame.dtypes if c not in keys and t in _ROUND_TRIP_TYPES)
+        dtypes = tuple((c, t) for c, t in frame.dtypes
+                       if c not in keys and t in kept and c not in float_ints)
     if isinstance(key, str) and isinstance(statement, cst.Assign) \
             and isinstance(target, cst.Subscript) and len(target.slice) == 1 \
             and handover.text_categories(statement.value, (dtype_names or {}).get) is not None:
