@@ -578,3 +578,18 @@ print(df["z"].tolist(), df["n5"].tolist())
 '''
     result = same_text(source, tmp_path, DATA_AB)
     assert "pl.lit(None, dtype=pl.Float64)" in result.converted_text
+
+
+def test_loc_assignment_keeps_a_nullable_integer_column_nullable(tmp_path) -> None:
+    # pandas writes whole numbers into its Int64 column as they are: still Int64 (1, <NA>);
+    # after the loc assignment porter had lost the mark, and tolist() gave 1.0 and nan
+    source = """
+import pandas as pd
+df = pd.read_csv("orchard.csv")
+df["xi"] = df["x"].astype("Int64")
+df.loc[df["k"] == "c", "xi"] = 7
+df["half"] = df["xi"] // 2
+print(df["xi"].tolist(), df["half"].tolist())
+df.to_csv("o.csv", index=False)
+"""
+    same_text(source, tmp_path, {"orchard.csv": "k,x\na,1\nb,\nc,3\n"})

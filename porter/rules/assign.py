@@ -807,8 +807,9 @@ def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("loc assignment to several or computed columns")
     name = column.const
     code, dtype = value_expr(value, frame, ctx)
+    mark = _loc_mark(frame, name, value, dtype, ctx)
     if isinstance(rows, Opaque) and rows.const == slice(None):
-        return with_columns(frame, [(name, code, dtype)])
+        return set_nullable_ints(with_columns(frame, [(name, code, dtype)]), {name: mark})
     if not isinstance(rows, Column):
         raise Unsupported("rows chosen by index label")
     if isinstance(value, Scalar) and value.pytype == "array" or isinstance(value, Opaque) \
@@ -831,7 +832,22 @@ def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
         "coalesce", emit.call("pl.selectors.by_name", name, require_all=False), emit.pl("lit", None))
     new = emit.when(ctx.expr(rows, frame), code, kept_values if exists else None)
     kept = dtype == frame.dtype(name) or not exists and dtype == "float"
-    return with_columns(frame, [(name, new, dtype if kept else None)])
+    return set_nullable_ints(with_columns(frame, [(name, new, dtype if kept else None)]),
+                             {name: mark})
+
+
+def _loc_mark(frame: Frame, name: str, value: Value, dtype: str | None,
+              ctx: RuleContext) -> str | None:
+    """Whether column `name` is one of pandas' nullable integers after df.loc[rows, name] =
+    value (Frame.nullable_ints): pandas writes the values into the column it has, so one of
+    its nullable integers given whole numbers stays one; a new column is what the value is."""
+    given = value_mark(value, ctx)
+    if not ctx.nullable_ints_possible or frame.columns is not None and name not in frame.columns:
+        return given
+    existing = nullable_mark(frame, name)
+    if existing == given or existing and given == NOT_NULLABLE and dtype == "int":
+        return existing
+    return None
 
 
 @rule("frame.astype", "series.astype")

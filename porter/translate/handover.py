@@ -114,7 +114,7 @@ def to_pandas(value: Value) -> Code:
         if categories:
             code = code.method("astype", {c: "category" for c in categories})
         nullable = {c: kind for c, kind in value.nullable_ints or ()
-                    if value.columns is not None and c in value.columns}
+                    if value.columns is not None and c in value.columns and value.dtype(c) == "int"}
         if nullable:
             # pandas' nullable integers (astype("Int64"), isocalendar()): Polars hands an int
             # column holding a missing value over as float64
@@ -163,7 +163,7 @@ def to_pandas(value: Value) -> Code:
                 code = code.attr("dt").attr("date")  # see _as_pandas_made_them
             elif value.dtype == "bool" and not value.null_is_false:
                 code = code.method("fillna", emit.atom('float("nan")'))
-            elif value.nullable_int:  # pandas' nullable integers (see Frame above)
+            elif value.nullable_int and value.dtype == "int":  # pandas' nullable integers (see Frame)
                 code = code.method("astype", value.nullable_int)
         # a Series pandas made without a name has none (Polars calls it "0")
         return code.method("rename", None) if value.name is None else code
