@@ -1244,3 +1244,21 @@ def test_min_max_of_no_text_or_dates_are_pandas_nan_and_nat(tmp_path) -> None:
         df["first"] = df["s"] == df["s"].min()
         df.to_csv("o.csv", index=False)
     """, tmp_path, {"glass.csv": "s,x,d\nab,1,2024-01-01\n,2,\ncd,3,2024-02-01\n"})
+
+
+def test_quantile_nearest_rounds_a_half_position_to_even(tmp_path) -> None:
+    # numpy rounds a .5 position half to even (the median of 10, 11 is 10), Polars' "nearest"
+    # up; lower / higher / nearest of whole numbers are ints in pandas (floats with a gap)
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("kiln.csv")
+        print(df[df["k"] == "a"]["v"].quantile(0.5, interpolation="nearest"))
+        print(df["v"].quantile(0.5, interpolation="lower"), df["v"].quantile(0.3, interpolation="higher"))
+        for q in [0.0, 0.1, 0.25, 0.5, 0.625, 0.75, 0.9, 1.0]:
+            print(q, df["v"].quantile(q, interpolation="nearest"),
+                  df["w"].quantile(q, interpolation="nearest"),
+                  df[df["k"] == "z"]["v"].quantile(q, interpolation="nearest"))
+        df["x"] = df["v"].where(df["v"] > 11)
+        print(df["x"].quantile(0.5, interpolation="nearest"), df["x"].quantile(0.5, interpolation="lower"))
+    """, tmp_path, {"kiln.csv": "k,v,w\na,10,1.5\na,11,\nb,10,2.5\nb,11,3.5\nb,12,1.0\nb,13,2.0\n"
+                                "b,14,\nb,15,0.5\n"})

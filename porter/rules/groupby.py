@@ -850,8 +850,9 @@ def series_quantile(call: PandasCall, ctx: RuleContext) -> Value:
     """Series.quantile(q) -> select(pandas_quantile(expr, q)).collect().item().
 
     Handles: pandas interpolates linearly (Polars' default is "nearest"), as numpy computes
-    it to the last bit and the sign of a zero (pandas_quantile; other interpolations are
-    Polars' quantile).
+    it to the last bit and the sign of a zero (pandas_quantile); "nearest" as numpy's, a .5
+    position rounded half to even; "lower", "higher" and "nearest" of an integer column are
+    integers where no value is missing, as pandas' (others are Polars' quantile).
     Caveats: a list of quantiles (a Series in pandas) is a TODO.
     """
     column = call.receiver
@@ -867,8 +868,22 @@ def series_quantile(call: PandasCall, ctx: RuleContext) -> Value:
         # numpy's interpolation to the last bit (pandas_quantile): Polars' quantile can be a
         # digit off, and returns -0.0 where numpy's a + (b - a) * t gives 0.0
         expr = emit.call(QUANTILE_FUNCTION, column.code, q)
+    elif method == "nearest" and column.dtype in ("int", "float", None):
+        # numpy's: the value at (count - 1) * q rounded half to even, where Polars' "nearest"
+        # rounds a .5 position up (the median of 10, 11 is 10 in pandas, 11 in Polars)
+        count = column.code.method("count").method("cast", emit.atom("pl.Float64"))
+        at = emit.binop(emit.binop(count, "-", 1), "*", q).method(
+            "round", 0, mode="half_to_even").method("cast", emit.atom("pl.Int64"))
+        expr = column.code.method("drop_nulls").method("sort").method("slice", at, 1) \
+            .method("first")
     else:
         expr = column.code.method("quantile", q, method)
+    if method in ("lower", "higher", "nearest") and column.dtype == "int":
+        # one of the column's values: np.int64 in pandas, np.float64 where the column holds a
+        # missing value (pandas' float64 column); Polars' lower/higher of integers is Float64
+        if method != "nearest":
+            expr = expr.method("cast", emit.atom("pl.Int64"))
+        return _float_int_reduction(column, column.code, expr)
     return scalar_of(column, expr, collected=_nan_when_empty(column, "quantile", expr, ctx))
 
 
