@@ -424,3 +424,34 @@ print(ok["w"].tolist(), sub["w"].sum(), m["ws"].tolist())
 '''
     differential(source, "m", "ok", "sub")
     same_text(source + 'ok.to_csv("ok.csv", index=False)\n', tmp_path)
+
+
+def test_fill_of_an_int_column_with_a_float_keeps_it_int_or_says_so(tmp_path) -> None:
+    # pandas fills an int64 column (nothing missing) with nothing: it stays integer (4);
+    # Polars' fill_null(0.5) makes it Float64 (4.0). A whole number is filled as an int; a
+    # fraction cannot be (the column is Float64 where pandas' held a missing value): lowered
+    files = {"ferry.csv": "k,x,y\nb,4,1.5\nz,2,0.5\na,3,2.5\n"}
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("ferry.csv")
+        df["m"] = df["x"].fillna(2.0)
+        print(df["m"].tolist(), df.fillna({"x": 0.0})["x"].tolist())
+        df.to_csv("o.csv", index=False)
+    """, tmp_path, files)
+    for name, text in files.items():
+        (tmp_path / name).write_text(text)
+    result = convert("""
+        import pandas as pd
+        df = pd.read_csv("ferry.csv")
+        df["m"] = df["x"].fillna(0.5)
+        d2 = df.fillna(0.5)
+        d3 = df.fillna({"x": 0.5, "k": "?"})
+        df["n"] = df["x"].fillna(df["y"])
+        df["q"] = df["y"].fillna(0.5)
+    """, data_dir=str(tmp_path))
+    sites = {(s.line, s.key): s for s in result.sites}
+    for line, key in ((4, "series.fillna"), (5, "frame.fillna"), (6, "frame.fillna"),
+                      (7, "series.fillna")):
+        assert sites[(line, key)].confidence <= 0.9, (line, key)
+        assert "stays integer" in sites[(line, key)].message
+    assert sites[(8, "series.fillna")].confidence == 1.0

@@ -6,6 +6,8 @@ arithmetic is followed by fill_nan(None)), so pandas' "missing" is Polars' null 
 
 from __future__ import annotations
 
+from dataclasses import replace
+
 import libcst as cst
 
 from porter.emit import code as emit
@@ -150,8 +152,33 @@ def series_fillna(call: PandasCall, ctx: RuleContext) -> Value:
         if column.dtype is None and _kind_of(value.const) in ("str", "number"):
             ctx.lower("the column type is not known: a fill value of another type makes a mixed "
                       "column in pandas, text in Polars", 0.85)
-    code = column.code.method("fill_null", fill_value(value, column.frame, ctx))
-    return derived_column(column, code, dtype=column.dtype, others=[value])
+    dtype = column.dtype
+    if column.dtype == "int" and isinstance(value, Opaque) and isinstance(value.const, float) \
+            and value.const.is_integer():
+        # fill_null(3.0) would make the column float; pandas' int64 column (nothing to fill)
+        # stays integer: fill with the whole number
+        code = column.code.method("fill_null", int(value.const))
+    else:
+        code = column.code.method("fill_null", fill_value(value, column.frame, ctx))
+        if column.dtype == "int" and _float_fill(value):
+            _int_filled_with_float(column.name, ctx)
+            dtype = "float"
+    return derived_column(column, code, dtype=dtype, others=[value])
+
+
+def _float_fill(value: Value) -> bool:
+    """A fill value that makes Polars' integer column Float64: a float, or a float column or
+    scalar."""
+    if isinstance(value, Opaque) and value.is_const:
+        return isinstance(value.const, float)
+    return isinstance(value, Column) and value.dtype == "float" \
+        or isinstance(value, Scalar) and value.pytype == "float"
+
+
+def _int_filled_with_float(name: str | None, ctx: RuleContext) -> None:
+    ctx.lower(f"pandas fills `{name or 'the column'}` only where it holds a missing value (a "
+              "float64 column then): an int64 column with nothing to fill stays integer (4), "
+              "where Polars makes it Float64 (4.0)", 0.9)
 
 
 @rule("series.combine_first")
@@ -240,7 +267,13 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
             if _mixes_types(v, frame.dtype(name)):
                 raise Unsupported(f"filling {v!r} into the {frame.dtype(name)} column {name!r} "
                                   f"{MIXED_COLUMN}")
-            items.append((name, emit.col(name).method("fill_null", emit.as_expr(v)), frame.dtype(name)))
+            dtype = frame.dtype(name)
+            if dtype == "int" and isinstance(v, float) and v.is_integer():
+                v = int(v)  # pandas' int64 column stays integer (as the whole-frame fill below)
+            elif dtype == "int" and isinstance(v, float):
+                _int_filled_with_float(name, ctx)
+                dtype = "float"
+            items.append((name, emit.col(name).method("fill_null", emit.as_expr(v)), dtype))
         if frame.columns is None:
             ctx.lower("the columns are not known: a name that is not a column is ignored by "
                       "pandas and an error in Polars", 0.9)
@@ -265,6 +298,13 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
             code = frame.code.method("with_columns", emit.atom("pl.selectors.float()").method(
                 "fill_null", value.const), emit.atom("pl.selectors.integer()").method(
                 "fill_null", int(value.const)))
+        elif isinstance(value.const, float):
+            ints = [c for c, t in frame.dtypes if t == "int"]
+            if ints or not complete:
+                _int_filled_with_float(", ".join(ints) if ints else "an integer column", ctx)
+            # Polars' fill_null(0.5) makes the integer columns Float64
+            frame = replace(frame, dtypes=tuple((c, "float" if t == "int" else t)
+                                                for c, t in frame.dtypes))
         others = [c for c, t in frame.dtypes if _mixes_types(value.const, t)]
         if others and _kind_of(value.const) == "number" \
                 and all(frame.dtype(c) == "str" for c in others):
