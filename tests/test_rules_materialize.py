@@ -218,3 +218,16 @@ def test_values_of_nullable_integers_are_pandas_own(tmp_path) -> None:
     result = convert(source + 'b = df["m"].unique().tolist()\n')
     site = next(s for s in result.sites if s.key == "series.unique")
     assert site.confidence <= 0.9 and "<NA>" in site.message
+
+
+def test_dict_and_printed_value_of_nullable_integers_are_pandas_own(tmp_path) -> None:
+    # pandas' Int64 column: to_dict() gives 1 and None, iloc of the missing value prints <NA>;
+    # porter gave 1.0 and nan for both
+    from support import same_text
+    source = ('import pandas as pd\ndf = pd.read_csv("ferry.csv")\n'
+              'df["m"] = df["n"].astype("Int64")\n'
+              'print(df["m"].to_dict())\n'
+              'print(df["m"].iloc[1], df["m"].iloc[0])\n'
+              'v = df["m"].iloc[2]\n'
+              'print(v + 1)\n')
+    same_text(source, tmp_path, {"ferry.csv": "n,k\n1,a\n,b\n3,c\n"})

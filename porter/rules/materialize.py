@@ -102,7 +102,8 @@ def series_to_dict(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: the key of a groupby or value_counts result (one key), or the row number of a
     frame labelled 0..n-1; the values are pandas' own (an integer column with a missing value
-    is float, a missing value nan, dates Timestamps), as is each key. Only the labels and the
+    is float, a missing value nan, dates Timestamps; pandas' nullable integers ints and
+    None), as is each key. Only the labels and the
     column cross to pandas, once, where the dict is made.
     Caveats: labels of several keys (tuples in pandas) and a frame whose labels are no longer
     0..n-1 are TODOs.
@@ -117,12 +118,14 @@ def series_to_dict(call: PandasCall, ctx: RuleContext) -> Value:
         key = frame.index[0]
         value = name if expr.text == emit.col(name).text else expr.method("alias", name)
         code = frame.code.method("select", key, value).method("collect").method("to_pandas")
+        if column.nullable_int and column.dtype == "int":  # pandas' nullable integers: 1, None
+            code = code.method("astype", {name: column.nullable_int})
         if frame.dtype(key) == "bool":
             # a missing True/False key is nan in pandas (an object column), None from Polars
             code = code.method("fillna", {key: emit.atom('float("nan")')})
         code = code.method("set_index", key).index(name).method("to_dict")
     elif not frame.index and frame.labels_intact:
-        code = _series(column).method("to_pandas").method("to_dict")
+        code = handover.to_pandas(column).method("to_dict")  # (nullable integers as pandas has them)
     else:
         raise ctx.todo("the row labels are several keys, or no longer 0..n-1: collect the label "
                        "columns and the values and build the dict with zip")
@@ -136,6 +139,7 @@ def series_position(call: PandasCall, ctx: RuleContext) -> Value:
     number, text, True/False, a datetime; a negative position counts from the end in both, and
     a position past the end raises in both.
 
+    A printed value of pandas' nullable integers is pandas' own (<NA> for a missing one).
     Caveats: a missing text is None here, nan in pandas (0.95); slices, lists of positions and
     a position computed at run time are TODOs.
     """
@@ -148,6 +152,10 @@ def series_position(call: PandasCall, ctx: RuleContext) -> Value:
                        "are head / tail / slice of the frame)")
     if column.dtype not in ("int", "float", "str", "bool", "datetime") or column.element:
         raise ctx.todo("a value of a column whose type porter does not know")
+    if column.nullable_int and column.dtype == "int" and not column.frame.index and ctx.shown:
+        # printed: pandas' nullable integers give np.int64, or <NA> for a missing value
+        ctx.handover = True
+        return Scalar(handover.to_pandas(column).attr("iloc").index(key.const), pytype="int")
     value = column.code.method("fill_null", False) if column.null_is_false else column.code
     expr = value.method("get", key.const)
     if column.dtype == "str":
