@@ -581,3 +581,19 @@ def test_pythons_power_in_a_lambda_lowers_confidence(expr: str, reason: str) -> 
 def test_pythons_power_of_a_positive_base_keeps_its_confidence() -> None:
     result = convert(FRAME + 'df["r"] = df["i"].map(lambda v: v ** 2)\ndf["t"] = df["a"].map(lambda v: 2 ** v)\n')
     assert all(s.confidence > 0.9 for s in result.sites if s.key == "series.map")
+
+
+def test_zero_remainder_by_a_negative_divisor_keeps_its_sign(tmp_path) -> None:
+    """6.0 % -3 is -0.0 in pandas (the remainder takes the divisor's sign, a zero too): written
+    -0.0, where Polars' remainder is 0.0."""
+    same_text("""
+import pandas as pd
+df = pd.read_csv("kiln.csv")
+df["m"] = df["hours"] % -3
+df["m2"] = df["hours"] % 3
+df["m3"] = (df["hours"] * 2) % -2.5
+df["m4"] = df["hours"].map(lambda v: v % -3)
+df["i"] = df["trays"] % -2
+df.to_csv("out.csv", index=False)
+print(df["m"].tolist())
+""", tmp_path, {"kiln.csv": "hours,trays\n3.0,4\n6.0,5\n,6\n-1.5,-7\n0.0,0\n-3.0,2\n"})

@@ -131,8 +131,16 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
                       "which can be some binary digits off pandas' exact remainder", 0.9)
         if isinstance(right, Opaque) and right.const == 0:
             code = emit.pl("lit", None, dtype=emit.atom("pl.Float64"))  # every value is NaN
+        elif _is_nonzero_constant(right) and right.const < 0 and ltype != "bool":  # type: ignore[union-attr]
+            # a zero remainder takes the divisor's sign in pandas (6.0 % -3 is -0.0), Polars
+            # writes 0.0: x % d is -((-x) % -d), the same number, with the sign of zero of a
+            # remainder by a positive divisor turned round
+            code = emit.unary("-", emit.binop(emit.unary("-", lcode), "%", emit.lit(-right.const)))  # type: ignore[union-attr]
         elif not _is_nonzero_constant(right):
             code = emit.when(emit.binop(rcode, "!=", 0), code)
+            if ltype != "int" and rtype != "int":
+                ctx.lower("a zero remainder by a negative divisor is -0.0 in pandas (6.0 % -3), "
+                          "0.0 here: written and printed so", 0.99)
     elif op in ("+", "-", "*", "**"):
         code = emit.binop(lcode, op, rcode)
         hoisted = False
