@@ -42,7 +42,7 @@ PORTS = [
     _port('df["s"].str.upper()',
           'pl.col("s").str.replace_all("ß", "ẞ", literal=True).str.to_uppercase()'),
     _port('df["s"].str.title()',
-          'pl.col("s").str.replace_all("Σ", "σ", literal=True).str.to_titlecase()'),
+          'str.replace_many({"Σ": "σ", "ß": "ẞ"})\n    .str.to_titlecase()'),
     _port('df["s"].str.strip()', 'pl.col("s").str.strip_chars()'),
     _port('df["s"].str.strip("x ")', 'pl.col("s").str.strip_chars("x ")'),
     _port('df["s"].str.lstrip()', 'pl.col("s").str.strip_chars_start()'),
@@ -469,6 +469,18 @@ df["lower"] = df["street"].str.lower()
 df["cap"] = df["street"].str.capitalize()
 df["title"] = df["street"].str.title()
 df["up"] = df["street"].str.upper()
+result = df
+''')
+
+
+def test_title_of_sharp_s_digraphs_and_dotted_capital_i_as_pandas() -> None:
+    # pandas' (pyarrow's) title() upper-cases the first letter of a word one letter at a time:
+    # "ß" first is "ẞ" (Polars: "Ss"), a digraph first is its upper case "Ǆ" (Polars: the
+    # title case "ǅ"); "İ" inside a word is "i" (Polars: "i̇", two characters)
+    differential(HEAD + '''
+df = pd.DataFrame({"s": ["  Ünïcödé ß straße  ", "ǅemal dž", "ǆemal aǅb", "ǉubljana ǋ ǌ Ǌx",
+                         "ǳ ǲ Ǳa", "ßa ßb aẞb", "İzmir İZMİR", None]})
+df["title"] = df["s"].str.title()
 result = df
 ''')
 

@@ -281,10 +281,12 @@ def case(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: "ß" upper-cased to "ẞ", as pandas' kernel does (Polars writes "SS"): it is made
     "ẞ" first, which Polars keeps; lower() of "İ" is "i" and of a final "Σ" is "σ", as in
     pandas (Polars writes "i̇" and "ς"): made so first (title() too for the sigma).
+    title() as pandas writes it (_pandas_title): "ß" and a digraph first in a word, "İ" inside
+    one.
     Caveats: a few letters still differ: ligatures ("ﬀ"), "ŉ" and Greek letters with an iota
-    are kept by pandas and expanded by Polars, "İ" inside a word is "i" in pandas' title()
-    and "i̇" in Polars', "ß" first in a word is "ẞ" in pandas' title() and "Ss" in Polars',
-    letters added in Unicode 16 lower in pandas only (confidence below 1 in the table).
+    are kept by pandas and expanded by Polars; title() writes an "i" with a combining dot
+    (i + U+0307) already in the text as "i"; letters added in Unicode 16 lower in pandas only
+    (confidence below 1 in the table).
     """
     column = text_column(call, ctx)
     ctx.reject_unknown(call)
@@ -293,9 +295,25 @@ def case(call: PandasCall, ctx: RuleContext) -> Value:
         text = _capital_sharp_s(text)
     elif call.name == "lower":
         text = _simple_lower_case(text)
-    else:  # title: "İ" first in a word stays "İ", so only the sigma is made "σ" first
-        text = text.method("replace_all", "Σ", "σ", literal=True).attr("str")
+    else:
+        return _string(column, _pandas_title(text))
     return _string(column, text.method(_CASE[call.name]))
+
+
+# pandas' title() upper-cases the first letter of a word, Polars' writes its title case: the
+# four letters whose title case is not their upper case (the digraphs "ǅ", "ǈ", "ǋ", "ǲ")
+_TITLE_TO_UPPER = {"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ"}
+
+
+def _pandas_title(text: Code) -> Code:
+    """title() as pandas' (pyarrow's) kernel writes it, one letter at a time: "Σ" is "σ" at
+    the end of a word too, "ß" first in a word is "ẞ" (Polars: "Ss"; "ẞ" inside a word is
+    lowered to "ß" by both), a digraph first in a word is its upper case ("ǆemal" -> "Ǆemal",
+    Polars: "ǅemal"; one inside a word is lowered by both), "İ" inside a word is "i" (Polars:
+    "i̇", i and a combining dot, which pandas does not write)."""
+    text = text.method("replace_many", {"Σ": "σ", "ß": "ẞ"}).attr("str").method("to_titlecase")
+    dotted_i = emit.atom(r'"i\u0307"')  # written escaped: a combining dot after a quote hides
+    return text.attr("str").method("replace_many", {**_TITLE_TO_UPPER, dotted_i: "i"})
 
 
 def _simple_lower_case(text: Code) -> Code:

@@ -83,8 +83,9 @@ visits = pl.scan_csv(
 visits = visits.with_columns(
     name=pl.col("name")
     .str.strip_chars()
-    .str.replace_all("Σ", "σ", literal=True)
-    .str.to_titlecase(),
+    .str.replace_many({"Σ": "σ", "ß": "ẞ"})
+    .str.to_titlecase()
+    .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"}),
 )
 visits = visits.with_columns(
     day=pl.when(

@@ -280,8 +280,9 @@ def load_readings(path):
     )
     readings = readings.with_columns(
         observer=pl.col("observer")
-        .str.replace_all("Σ", "σ", literal=True)
-        .str.to_titlecase(),
+        .str.replace_many({"Σ": "σ", "ß": "ẞ"})
+        .str.to_titlecase()
+        .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"}),
     )
     readings = readings.with_columns(snow_cm=pl.col("snow_cm").fill_null(0))
     readings = readings.unique(keep="first", maintain_order=True)

@@ -128,8 +128,9 @@ log = log.with_columns(furnace=clean_text(pl.col("furnace")))
 log = log.with_columns(
     gaffer=pl.col("gaffer")
     .str.strip_chars()
-    .str.replace_all("Σ", "σ", literal=True)
-    .str.to_titlecase(),
+    .str.replace_many({"Σ": "σ", "ß": "ẞ"})
+    .str.to_titlecase()
+    .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"}),
 )
 log = (
     log

@@ -85,8 +85,8 @@ FOG_NM = 2   # below two nautical miles the horn goes on
 def tidy_names(s):
     # keepers type their own names, in any case, sometimes with a leading space
     return (
-        s.str.strip_chars().str.replace_all("Σ", "σ", literal=True).str
-        .to_titlecase()
+        s.str.strip_chars().str.replace_many({"Σ": "σ", "ß": "ẞ"}).str.to_titlecase().str
+        .replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"})
     )
 
 

@@ -143,8 +143,9 @@ print(
 rota = rota.with_columns(
     keeper=pl.col("keeper")
     .str.strip_chars()
-    .str.replace_all("Σ", "σ", literal=True)
-    .str.to_titlecase(),
+    .str.replace_many({"Σ": "σ", "ß": "ẞ"})
+    .str.to_titlecase()
+    .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"}),
 )
 rota = rota.with_columns(lock=pl.col("lock").str.strip_chars())
 rota = rota.with_columns(

@@ -75,8 +75,9 @@ print("lines written twice:", milk.collect().to_pandas().duplicated().sum())
 milk = milk.with_columns(
     alp=pl.col("alp")
     .str.strip_chars()
-    .str.replace_all("Σ", "σ", literal=True)
+    .str.replace_many({"Σ": "σ", "ß": "ẞ"})
     .str.to_titlecase()
+    .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"})
     .str.replace_all("Da", "da", literal=True),
 )
 milk = milk.with_columns(

@@ -121,8 +121,9 @@ unread = (
 readings = readings.drop_nulls("read_at")
 readings = readings.with_columns(
     observer=pl.col("observer")
-    .str.replace_all("Σ", "σ", literal=True)
-    .str.to_titlecase(),
+    .str.replace_many({"Σ": "σ", "ß": "ẞ"})
+    .str.to_titlecase()
+    .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"}),
 )
 
 # the flow was not always written down: estimate it from the level where it is missing

@@ -237,8 +237,9 @@ def clean_jobs(jobs):
     jobs = jobs.with_columns(
         ferry=pl.col("ferry")
         .str.strip_chars()
-        .str.replace_all("Σ", "σ", literal=True)
-        .str.to_titlecase(),
+        .str.replace_many({"Σ": "σ", "ß": "ẞ"})
+        .str.to_titlecase()
+        .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"}),
     )
     jobs = jobs.with_columns(
         status=pl.col('status')
@@ -248,8 +249,9 @@ def clean_jobs(jobs):
     )
     jobs = jobs.with_columns(
         mechanic=pl.col("mechanic")
-        .str.replace_all("Σ", "σ", literal=True)
-        .str.to_titlecase(),
+        .str.replace_many({"Σ": "σ", "ß": "ẞ"})
+        .str.to_titlecase()
+        .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"}),
     )
     jobs = jobs.with_columns(labour=pl.col("hours") * HOURLY_RATE)
     return jobs.unique("job_id", keep="first", maintain_order=True)

@@ -293,8 +293,9 @@ orders = orders.with_columns(
 orders = orders.with_columns(
     customer=pl.col("customer")
     .str.strip_chars()
-    .str.replace_all("Σ", "σ", literal=True)
-    .str.to_titlecase(),
+    .str.replace_many({"Σ": "σ", "ß": "ẞ"})
+    .str.to_titlecase()
+    .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"}),
 )
 orders = (
     orders
