@@ -10,7 +10,7 @@ from __future__ import annotations
 import pytest
 
 from rule_checks import check_ports, check_todo, check_unchanged
-from support import convert, differential
+from support import convert, differential, same_text
 
 # Duplicate keys, ties in v, NaN and None together in text and numbers, unicode text.
 FRAME = """\
@@ -541,3 +541,18 @@ df = pd.DataFrame({{"ok": [True, False, True], "n": [1, 2, 0]}})
 df["r"] = {expr}
 result = df
 """)
+
+
+def test_replace_with_none_in_a_number_column_is_a_todo(tmp_path) -> None:
+    # pandas 3 makes an object column of the ints and None ([3, None, 2], written 3); Polars'
+    # Int64 with nulls is what porter reads as pandas' float64 (written 3.0, [3.0, nan, 2.0])
+    check_todo(FRAME + 's = df["n"].replace(0, None)\nresult = s.tolist()\n', "series.replace")
+    check_todo(FRAME + 's = df["n"].replace({0: None})\n', "series.replace")
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("orchard.csv")
+        s = df["apples"].replace(0, None)
+        print(s.tolist(), s.dtype)
+        t = df["tree"].replace("B", None)
+        print(t.tolist())
+    """, tmp_path, {"orchard.csv": "tree,apples\nA,3\nB,0\nC,2\nD,0\n"})

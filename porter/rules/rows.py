@@ -511,7 +511,10 @@ def series_replace(call: PandasCall, ctx: RuleContext) -> Value:
     """s.replace(a, b) / s.replace({a: b}) -> .replace(...).
 
     Handles: values not in the mapping are kept, like pandas. Replacing with None makes a
-    missing value in both.
+    missing value in both (text columns).
+    Caveats: replacing with None in a number or True/False column is a TODO: pandas 3 makes an
+    object column of the values and None ([3, None, 2], written 3); lowered where the column's
+    type is not known.
     """
     column = call.receiver
     assert isinstance(column, Column)
@@ -522,6 +525,19 @@ def series_replace(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("replacing values with values of another type (text with numbers) "
                           f"{MIXED_COLUMN}")
     code, dtype = column.code, column.dtype
+    replacements = args.values() if isinstance(args, dict) else [args[1]]
+    if any(v is None for v in replacements):
+        # pandas 3 puts None into a number or True/False column as an object column of the
+        # values and None ([3, None, 2], written 3); Int64 with nulls is pandas' float64
+        # (written 3.0, listed [3.0, nan, 2.0])
+        if dtype in ("int", "float", "bool"):
+            raise Unsupported(f"replacing a value with None in a {dtype} column: pandas makes an "
+                              "object column of the values and None ([3, None, 2], written 3), "
+                              "which no Polars type holds")
+        if dtype is None:
+            ctx.lower("replacing a value with None in a column of unknown type: in a number or "
+                      "True/False column pandas makes an object column ([3, None, 2], written "
+                      "3), here one with missing values (written 3.0)", 0.9)
     if _fractional_replacement(args) and dtype != "float":
         # pandas makes an integer column float to hold 2.5; Polars would truncate it to 2
         code, dtype = code.method("cast", emit.atom("pl.Float64")), "float"
