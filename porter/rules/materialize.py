@@ -125,7 +125,10 @@ def series_to_dict(call: PandasCall, ctx: RuleContext) -> Value:
             code = code.method("fillna", {key: emit.atom('float("nan")')})
         code = code.method("set_index", key).index(name).method("to_dict")
     elif not frame.index and frame.labels_intact:
-        code = handover.to_pandas(column).method("to_dict")  # (nullable integers as pandas has them)
+        code = _series(column).method("to_pandas")
+        if column.nullable_int and column.dtype == "int":  # pandas' nullable integers: 1, None
+            code = code.method("astype", column.nullable_int)
+        code = code.method("to_dict")
     else:
         raise ctx.todo("the row labels are several keys, or no longer 0..n-1: collect the label "
                        "columns and the values and build the dict with zip")
