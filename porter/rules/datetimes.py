@@ -342,23 +342,24 @@ def isocalendar_part(call: PandasCall, ctx: RuleContext) -> Value:
     cast to pandas' types (Int32, UInt32, UInt32).
 
     Handles: the ISO year of the days around New Year (2024-12-30 is week 1 of 2025); Monday
-    is day 1 in both; NaT stays missing (<NA> in pandas' nullable columns), and to_csv writes
-    the column as integers (52, an empty field), as pandas writes a nullable column (a script
-    using isocalendar counts as one making nullable integers, see io.to_csv).
-    Caveats: with a missing date, values / tolist() give floats and nan where pandas' nullable
-    column gives 52 and <NA>, and a comparison with <NA> is <NA> in pandas (0.95). The whole
-    frame isocalendar() makes (or isocalendar()["week"]) stays a TODO.
+    is day 1 in both; NaT stays missing (<NA> in pandas' nullable columns). The column is
+    marked as one of pandas' nullable integers (Column.nullable_int): to_csv writes it as
+    integers (52, an empty field), values / tolist() and a hand-over to pandas give pandas'
+    own (52, <NA>).
+    Caveats: a comparison with <NA> is <NA> in pandas, missing here (a filter drops the row
+    in both; printed it differs: 0.95). The whole frame isocalendar() makes (or
+    isocalendar()["week"]) stays a TODO.
     """
     column = accessor_column(call)
     if column.dtype not in (None, "datetime"):
         raise ctx.todo(f"a {column.dtype} column")
-    ctx.lower("pandas' isocalendar() parts are nullable integers: with a missing date they stay "
-              "integers (52, <NA>) where values / tolist() here give 52.0 and nan, a frame "
-              "handed to pandas later holds the column as float64 (written 52.0 where pandas "
-              "writes 52), and a comparison with <NA> is <NA> in pandas", 0.95)
+    ctx.lower("pandas' isocalendar() parts are nullable integers: with a missing date a "
+              "comparison with the part is <NA> in pandas, missing here (printed, it differs)",
+              0.95)
     method, dtype = _ISO[call.name]
     code = _dt(column).method(method).method("cast", emit.atom(f"pl.{dtype}"))
-    return derived_column(column, code, dtype="int", name=call.name)
+    # pandas' nullable integers (Int32, UInt32): to_csv, values and hand-overs read the mark
+    return replace(derived_column(column, code, dtype="int", name=call.name), nullable_int=dtype)
 
 
 # -- formats --------------------------------------------------------------------------------
