@@ -945,3 +945,9 @@ df["r1"] = df["kg"].apply(lambda v: -1 if pd.isna(v) else round(v * 2))
 df.to_csv("out.csv", index=False)
 print(df["r0"].tolist(), df["r1"].sum())
 """, tmp_path, {"orchard.csv": "row,kg\nA,0.285\nB,-0.5\nC,-2.5\nD,-0.05\nE,1e16\nF,\nG,2.5\n"})
+
+
+def test_pythons_round_without_digits_says_why_where_a_value_may_be_missing() -> None:
+    result = convert(FRAME + 'df["r"] = df["v"].map(lambda x: round(x), na_action="ignore")\n')
+    site = next(s for s in result.sites if s.key == "series.map")
+    assert site.confidence == 0.95 and "na_action" in site.message, site.message
