@@ -444,7 +444,7 @@ def test_group_rolling_over_two_keys_assigned_back_matches_pandas() -> None:
 def test_group_rolling_is_the_window_over_the_key_in_the_frames_order() -> None:
     check_ports(GROUPS + 'df["w"] = df.groupby("k")["v"].rolling(3, min_periods=1).mean()'
                 '.reset_index(level=0, drop=True)\n',
-                'w=pl.when(pl.col("k").is_not_null()).then(pl.col("v").rolling_mean(3, min_samples=1).over("k"))')
+                '.otherwise(pl.col("v").rolling_mean(3, min_samples=1)).over("k"))')
 
 
 @pytest.mark.parametrize("expr", [
@@ -862,3 +862,39 @@ def test_running_sum_of_a_true_false_column_as_read_says_pandas_keeps_an_object(
     assert "object column" in sites[(4, "series.cumsum")].message
     assert sites[(5, "groupby.cumsum")].confidence <= 0.9
     assert sites[(7, "series.cumsum")].confidence == 1.0
+
+
+def test_rolling_mean_of_equal_values_is_that_value(tmp_path) -> None:
+    # pandas' running mean gives a window of equal values the value itself (the window's last
+    # one): -0.0 for -0.0, -0.0 (Polars' running sum gave 0.0) and 0.1 for three 0.1s
+    from support import same_text
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("kiln.csv")
+        df["roll"] = df["t"].rolling(3, min_periods=1).mean()
+        df["r2"] = df["t"].rolling(2).mean()
+        df["ex"] = df["t"].expanding().mean()
+        df["c3"] = df["t"].rolling(3, center=True, min_periods=1).mean()
+        df["c4"] = df["t"].rolling(4, center=True, min_periods=1).mean()
+        df["c2"] = df["t"].rolling(2, center=True).mean()
+        df["g"] = df.groupby("k")["t"].transform(lambda s: s.rolling(2, min_periods=1).mean())
+        print(df["roll"].tolist())
+        df.to_csv("o.csv", index=False)
+    """, tmp_path, {"kiln.csv": "k,t\na,2.5\na,-0.0\nb,-0.0\nb,-0.0\na,0.1\nb,0.1\na,0.1\na,\n"
+                                "b,0.1\na,0.1\nb,0.0\n"})
+
+
+def test_group_cummin_keeps_the_zero_met_first(tmp_path) -> None:
+    # pandas' running minimum within groups keeps -0.0 when 0.0 follows (0.0 < -0.0 is
+    # false); Polars' took the later zero. Outside groups both take the later one (numpy)
+    from support import same_text
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("kiln.csv")
+        df["gmin"] = df.groupby("g")["v"].cummin()
+        df["gmax"] = df.groupby("g")["v"].cummax()
+        df["cmin"] = df["v"].cummin()
+        df["cmax"] = (-df["v"]).cummax()
+        df.to_csv("o.csv", index=False)
+    """, tmp_path, {"kiln.csv": "g,v\na,3\na,\na,3\na,-0.0\na,0.0\nb,0.0\nb,-0.0\nb,-1\nb,0.0\n"
+                                "c,5\nc,-0.0\n"})

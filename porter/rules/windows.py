@@ -160,6 +160,16 @@ def _as_read(column: Column) -> bool:
         and column.frame.version(column.name) == 0
 
 
+def _signed_zero_kept(values: Code, name: str) -> Code:
+    """cummax / cummin of floats within groups as pandas: a running extreme that reached zero
+    keeps the zero it met first (0.0 < -0.0 is false, so -0.0 stays), where Polars' (as
+    numpy's, which pandas uses outside groups) takes the later one. Where the running value
+    is a zero, it is the group's first zero (met at or before that row)."""
+    running = values.method(CUMULATIVE[name])
+    first_zero = values.method("filter", emit.binop(values, "==", 0)).method("first")
+    return emit.when(emit.binop(running, "==", 0), first_zero, running)
+
+
 # -- within groups ------------------------------------------------------------------------------
 
 TRANSFORMS = ("sum", "mean", "median", "min", "max", "std", "var", "count", "nunique", "first",
@@ -420,7 +430,8 @@ def group_cumulative(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: the running value restarts in each group and carries on past a missing value
     (skipna); a missing key gives a missing value; the running sum of a True/False column
-    counts the True values.
+    counts the True values; a running minimum or maximum of floats keeps the zero it met
+    first (-0.0 before 0.0), as pandas.
     Caveats: cumprod / cummax / cummin of True/False and the running sum of durations
     (pandas' goes wrong past a missing one where a key is missing) are TODOs.
     """
@@ -443,6 +454,8 @@ def group_cumulative(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("a running sum of durations: where a key is missing, pandas' sum runs "
                           "on past a missing duration as a huge negative number")
     running = column.code.method(CUMULATIVE[call.name])
+    if column.dtype == "float" and call.name in ("cummax", "cummin"):
+        running = _signed_zero_kept(column.code, call.name)
     if call.name in ("cummax", "cummin") and _missing_time_is_earliest(grouped, column, ctx):
         # where a key is missing, pandas takes a missing time as the earliest of all: cummax
         # carries the running maximum onto it, cummin is missing from it to the group's end
@@ -886,6 +899,16 @@ def _aggregate_code(values: Code, how: str, options: dict[str, object], kind: st
         return flags.method("rolling_sum", *args, **kwargs)
     if how in ("std", "var") and ddof != 1:
         kwargs["ddof"] = ddof
+    if how == "mean":
+        # pandas' running mean gives a window whose values are all equal that value itself:
+        # the window's last one (-0.0 for 0.0, -0.0; 0.1 for three 0.1s, not 0.1000…02)
+        same = emit.binop(values.method("rolling_min", *args, **kwargs), "==",
+                          values.method("rolling_max", *args, **kwargs))
+        last = values.method("forward_fill")
+        ahead = (int(args[0]) - 1) // 2 if kwargs.get("center") else 0  # type: ignore[call-overload]
+        if ahead:  # a centred window ends (size - 1) // 2 rows further on
+            last = last.method("shift", -ahead).method("forward_fill")
+        return emit.when(same, last, values.method("rolling_mean", *args, **kwargs))
     return values.method(f"rolling_{how}", *args, **kwargs)
 
 
@@ -898,7 +921,8 @@ def window_aggregate(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: missing values are skipped and a window with fewer than min_periods values is
     missing, as in pandas; count's min_periods counts rows (pandas); std/var ddof; integer
-    columns give floats as in pandas.
+    columns give floats as in pandas; the mean of a window of equal values is that value, as
+    pandas gives it (-0.0 stays -0.0, three 0.1s give 0.1).
     Caveats: std/var (and float sums, means and medians of a rolling window) can differ in the
     last digits: lowered confidence. expanding().median() (a table TODO) and engine= are TODOs.
     """
