@@ -1145,6 +1145,22 @@ def test_read_csv_integers_beyond_int64_pandas_reads_as_text_stay_pandas(data: P
                for s in result.sites), result.converted_text
 
 
+def test_read_csv_integers_beyond_int64_with_a_blank_stay_pandas(data: Path) -> None:
+    # pandas is the reference: a negative value, one past int64 and a blank make a text column
+    # (the blank an empty text, not missing); the read had been typed Float64 (precision lost)
+    (data / "serials.csv").write_text(
+        "serial,x\n-5,1\n18446744073709551615,2\n,3\n9007199254740993,4\n", encoding="utf-8")
+    result = differential("""
+        import pandas as pd
+        df = pd.read_csv("serials.csv")
+        top = df["serial"].max()
+        gaps = int(df["serial"].isna().sum())
+        result = df["serial"].tolist()
+        """, "top", "gaps", "result", data_dir=str(data))
+    assert any(s.key == "pd.read_csv" and s.status == "todo" for s in result.sites), \
+        result.converted_text
+
+
 def test_to_csv_writes_small_floats_as_python_does(data: Path, monkeypatch: pytest.MonkeyPatch) -> None:
     # pandas is the reference implementation: it writes Python's repr (5e-05, 1.5e-07, 1e-09),
     # where Polars' writer gives 0.00005, 1.5e-7, 1e-9; the file text is compared byte for byte

@@ -252,7 +252,9 @@ def _missing_ints_as_floats(file: Path, schema: Any, options: dict[str, Any], *,
     as pandas reads it (pandas has no missing integer in a default read: 33 becomes 33.0), and
     the names of those columns."""
     given = options.get("dtype") if isinstance(options.get("dtype"), dict) else {}
-    ints = [name for name, dtype in schema.items() if dtype.is_integer() and name not in given]
+    # integers beyond int64 (Int128) are left to _unsigned_ints: pandas reads them as text
+    ints = [name for name, dtype in schema.items()
+            if dtype.is_integer() and dtype != pl.Int128 and name not in given]
     found = dict(schema)
     if not ints or file.stat().st_size > SAMPLE_SCAN_LIMIT:
         return found, set()
