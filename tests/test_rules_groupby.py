@@ -1262,3 +1262,16 @@ def test_quantile_nearest_rounds_a_half_position_to_even(tmp_path) -> None:
         print(df["x"].quantile(0.5, interpolation="nearest"), df["x"].quantile(0.5, interpolation="lower"))
     """, tmp_path, {"kiln.csv": "k,v,w\na,10,1.5\na,11,\nb,10,2.5\nb,11,3.5\nb,12,1.0\nb,13,2.0\n"
                                 "b,14,\nb,15,0.5\n"})
+
+
+def test_zero_of_a_float_key_among_several_is_the_zero_met_first(tmp_path) -> None:
+    # pandas' one group of 0.0 and -0.0 is labelled with the zero it met first (-0.0 here, in
+    # every combination); Polars' group_by on several keys wrote 0.0
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("tide.csv")
+        df.groupby(["d", "f"], dropna=False)["v"].sum().to_csv("by_df.csv")
+        df.groupby(["f", "d"])["v"].sum().to_csv("by_fd.csv")
+        df.groupby("f", dropna=False)["v"].sum().to_csv("by_f.csv")
+    """, tmp_path, {"tide.csv": "d,f,b,v\nx,1.5,1,1\nx,,2,2\nx,-0.0,3,3\nx,0.0,4,4\ny,1.5,5,5\n"
+                                "y,0.0,6,6\ny,-0.0,7,7\n"})

@@ -236,8 +236,21 @@ def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleCo
                           "groupby bound to a name: pandas' order of its groups")
     # with a True/False key whose missing values are kept, the groups in order of first
     # appearance (maintain_order), which order_of_bool_key reads
-    code = grouping_code(grouped if order is None else replace(grouped, sort=False)) \
-        .method("agg", *exprs)
+    zeros = _zero_keys(grouped)
+    if zeros:
+        # pandas labels the one group of 0.0 and -0.0 of a key with the zero it met first in
+        # the frame (-0.0 in every combination of several keys); Polars' group_by on several
+        # keys writes 0.0: each such key is taken again from the group's rows, where it holds
+        # the frame's first zero
+        grouped = replace(grouped, frame=replace(grouped.frame, code=grouped.frame.code.method(
+            "with_columns", *(emit.col(k).method("first").method("over", k) for k in zeros))))
+    code = grouping_code(grouped if order is None else replace(grouped, sort=False)).method(
+        "agg", *exprs, *(emit.col(k).method("first").method("alias", ZERO_KEY + k)
+                         for k in zeros))
+    if zeros:
+        code = code.method("with_columns", *(emit.col(ZERO_KEY + k).method("alias", k)
+                                             for k in zeros)).method(
+            "drop", emit.names_arg(ZERO_KEY + k for k in zeros))
     kinds = dtypes or [None] * max(len(names), 1)
     if any(".sum()" in e.text and ".sum().cast(" not in e.text for e in exprs) \
             and any(t is None for t in kinds):
@@ -264,6 +277,17 @@ def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleCo
         return Column(emit.col(name if name is not None else names[0]), frame=frame,
                       name=name, refs=frozenset(names), dtype=frame.dtype(names[0]))
     return frame
+
+
+ZERO_KEY = "_porter_key_"
+
+
+def _zero_keys(grouped: Grouped) -> list[str]:
+    """The float keys of a grouping on several keys (not one bound to a name), whose zero
+    Polars writes as 0.0 where pandas writes the zero it met first."""
+    if grouped.prepared or len(grouped.keys) < 2:
+        return []
+    return [k for k in grouped.keys if grouped.frame.dtype(k) == "float"]
 
 
 def order_of_bool_key(key: str) -> Code:

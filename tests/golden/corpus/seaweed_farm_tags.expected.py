@@ -362,13 +362,17 @@ per_line = per_line.with_columns(dry_kg=pl.col("dry_kg").round(2))
 weekly = (
     tags
     .filter(pl.col("week").is_not_null())
+    .with_columns(pl.col("week").first().over("week"))
     .drop_nulls(["species", "week"])
     .group_by(["species", "week"])
     .agg(
         pl.len().cast(pl.Int64).alias("bags"),
         pl.col("wet_kg").sum().alias("wet_kg"),
         pl.col("dry_ratio").mean().alias("mean_ratio"),
+        pl.col("week").first().alias("_porter_key_week"),
     )
+    .with_columns(pl.col("_porter_key_week").alias("week"))
+    .drop("_porter_key_week")
     .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort(["species", "week"])
 )
