@@ -593,3 +593,26 @@ print(df["xi"].tolist(), df["half"].tolist())
 df.to_csv("o.csv", index=False)
 """
     same_text(source, tmp_path, {"orchard.csv": "k,x\na,1\nb,\nc,3\n"})
+
+
+def test_astype_nullable_boolean_keeps_missing_values(tmp_path) -> None:
+    # astype("boolean") is pandas' nullable boolean: a blank stays <NA> (written empty), where
+    # astype(bool) makes it True; numbers 1.0 and 0.0 become True and False
+    source = """
+import pandas as pd
+df = pd.read_csv("kiln.csv")
+df["fired_nb"] = df["fired"].astype("boolean")
+df["load_nb"] = df["load"].astype("boolean")
+df["door_nb"] = df["door"].astype("boolean")
+print(df["fired_nb"].sum(), df["load_nb"].sum(), df["door_nb"].sum())
+df.to_csv("o.csv", index=False)
+"""
+    same_text(source, tmp_path, {"kiln.csv": "fired,load,door\nTrue,1.0,1\n,,0\nFalse,0.0,1\n"})
+
+
+def test_astype_nullable_boolean_of_other_numbers_fails_as_in_pandas() -> None:
+    # pandas refuses numbers other than 0 and 1 ("Need to pass bool-like values")
+    result = convert('import pandas as pd\ndf = pd.DataFrame({"kg": [2.5, 0.0]})\n'
+                     'df["b"] = df["kg"].astype("boolean")\nresult = df\n')
+    with pytest.raises(Exception):
+        run(result.converted_text)["result"].collect()

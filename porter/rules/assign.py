@@ -15,7 +15,7 @@ import libcst as cst
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.rules.io import polars_dtype
+from porter.rules.io import dtype_spelling, polars_dtype
 from porter.rules.io_options import datetime_text, duration_text, float_text
 from porter.rules.ops import int64_lit
 from porter.translate.context import (
@@ -981,6 +981,18 @@ def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, st
     if kind == "str" and column.dtype == "duration":
         # "0 days 02:30:00" (Polars casts no duration to text)
         return duration_text(code), "str"
+    if kind == "bool" and dtype_spelling(target) == "boolean":
+        # pandas' nullable boolean keeps a missing value missing (<NA>, written empty), and
+        # takes numbers 0 and 1 only (any other fails: "Need to pass bool-like values")
+        if column.dtype == "bool":
+            return code, "bool"
+        if column.dtype in ("int", "float"):
+            if column.dtype == "float":
+                code = code.method("fill_nan", None)
+            return code.method("replace_strict", {0: False, 1: True},
+                               return_dtype=emit.atom("pl.Boolean")), "bool"
+        raise Unsupported(f'astype("boolean") of a {column.dtype or "column of unknown"} type '
+                          "(pandas takes True/False and the numbers 0 and 1 only)")
     if kind == "bool":
         if column.dtype == "str":
             return emit.binop(code, "!=", "").method("fill_null", True), "bool"
