@@ -180,6 +180,26 @@ def test_read_csv_nrows_types_come_from_the_first_rows(data: Path) -> None:
     assert "nrows" in site.message
 
 
+def test_read_csv_nrows_types_from_the_rows_read_with_data(tmp_path: Path) -> None:
+    # a ferry line's first sailings: the load column holds text only in a later row, which
+    # pandas never reads with nrows=2 (int64 there, a sum and a mean); porter reads the types
+    # of those rows from --data
+    same_text("""
+        import pandas as pd
+        head = pd.read_csv("sailings.csv", nrows=2)
+        print(head["load"].sum(), head["load"].mean(), head.dtypes.tolist())
+        head.to_csv("head.csv", index=False)
+        """, tmp_path, {"sailings.csv": "sailing,load\n1,5\n2,7\n3,n/a?\n4,8\n"})
+
+
+def test_read_csv_nrows_with_a_blank_line_in_the_rows_read_is_a_todo(tmp_path: Path) -> None:
+    # pandas skips the blank line and reads two rows; Polars' n_rows counts it as a row
+    (tmp_path / "kiln.csv").write_text("firing,temp\n1,900\n\n2,950\n3,1000\n")
+    result = convert('import pandas as pd\ndf = pd.read_csv("kiln.csv", nrows=2)\n',
+                     data_dir=str(tmp_path))
+    assert [s.key for s in result.sites if s.status == "todo"] == ["pd.read_csv"]
+
+
 def test_read_csv_unnamed_index_column_with_data(data: Path) -> None:
     # A file written by pandas with its index has an empty first header; pandas names that
     # column "Unnamed: 0". With --data porter sees the header and names it the same way.

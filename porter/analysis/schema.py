@@ -126,6 +126,18 @@ class SchemaReader:
         file = self.root / path
         if not file.is_file():
             return None
+        if reader == "csv" and isinstance(options.get("nrows"), int):
+            # pandas infers the types of read_csv(nrows=N) from the N rows it reads: porter
+            # reads the types of those rows only, from a copy of the file cut after them
+            import tempfile
+            with tempfile.TemporaryDirectory() as folder:
+                head = Path(folder) / file.name
+                if not _first_rows(file, head, options):
+                    return None
+                return self._read_file(reader, head, options)
+        return self._read_file(reader, file, options)
+
+    def _read_file(self, reader: str, file: Path, options: dict[str, Any]) -> dict[str, str] | None:
         try:
             if reader == "csv":
                 schema = pl.scan_csv(file, **scan_kwargs(options)).collect_schema()
@@ -159,6 +171,42 @@ class SchemaReader:
             if found.no_rows:
                 found.polars = None
         return found
+
+
+def _first_rows(file: Path, head: Path, options: dict[str, Any]) -> bool:
+    """Write to `head` the lines of `file` up to the end of its first `nrows` data rows as
+    pandas counts them (after `skiprows` lines and the header; blank lines are not rows, a
+    quoted field may span lines); False when the file is not read."""
+    import csv
+
+    if file.stat().st_size > SAMPLE_SCAN_LIMIT or compression_of(str(file)):
+        return False
+    try:
+        with file.open(encoding="utf-8-sig", errors="replace", newline="") as handle:
+            lines = handle.read().splitlines(keepends=True)
+    except OSError:
+        return False
+    kept = int(options.get("skiprows") or 0)
+    taken = 0
+
+    def feed():  # counts the lines the csv reader takes
+        nonlocal kept
+        while kept < len(lines):
+            kept += 1
+            yield lines[kept - 1]
+
+    rows = csv.reader(feed(), delimiter=options.get("sep", ","))
+    wanted = 1 + int(options["nrows"])  # the header, then the rows
+    try:
+        for row in rows:
+            if row:
+                taken += 1
+                if taken == wanted:
+                    break
+    except csv.Error:
+        return False
+    head.write_text("".join(lines[:kept]), encoding="utf-8")
+    return True
 
 
 _NOT_FIRST = {"", "NaT", "nat", "NAT", "nan", "NaN", "NAN", "now", "today"}

@@ -166,12 +166,19 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     nrows = call.const("nrows", None, None, kinds=(int,))
     if nrows is not None:
         kwargs["n_rows"] = nrows
+        # pandas infers column types from the rows it reads: with --data porter reads the
+        # types of those rows (schema.py) and the scan is told them
+        options["nrows"] = nrows
+
+    schema = ctx.input_schema("csv", _paths(source), options)
+    if nrows is not None and getattr(schema, "polars", None) is None:
         # Polars infers column types from the whole file even when it reads n rows (and parses
         # past them), pandas only from the rows it reads.
         ctx.lower("nrows: pandas infers column types from the rows it reads, Polars from the "
                   "whole file (a column whose later rows hold text is read as text)", 0.9)
-
-    schema = ctx.input_schema("csv", _paths(source), options)
+    if nrows is not None and getattr(schema, "blank_lines", False):
+        raise ctx.todo("nrows with blank lines among the rows read: pandas skips them and "
+                       "reads the next rows, Polars counts each as one of the n_rows")
     emptied: list[tuple[str, list[str], Code | None, str, bool]] = []
     if per_column is not None:
         emptied = _emptied_columns(per_column, schema, overrides, dtypes, source, options, ctx)
@@ -222,6 +229,12 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower("the column types are the ones read from --data: a file whose values do not "
                   "fit them fails to read, and a column it adds is read as text (pandas would "
                   "infer other types)", 0.95)
+        if nrows is not None and not all(t.text in TEXT_CASTS for t in types.values()):
+            # the typed reader parses past the n rows: a later value that does not fit the
+            # types of the rows read stops it where pandas never reads that value
+            ctx.lower("nrows: the scan is told the types of the rows pandas reads; Polars' "
+                      "reader also parses some rows past them, and a value there that does "
+                      "not fit those types (True/False) stops the read", 0.9)
         if all(t.text in TEXT_CASTS for t in types.values()):
             code = _scan_as_text(source.code, kwargs, types, bool(getattr(schema, "partial", False)))
         else:
