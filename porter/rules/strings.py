@@ -31,10 +31,9 @@ from porter.translate.values import Column, Frame, Opaque, Parts, Value, fresh_t
 
 INT64 = emit.atom("pl.Int64")
 # pandas' counts over text are float64 once a value is missing (int64 otherwise); Polars keeps
-# Int64 with nulls, so a reduction of the column is an integer where pandas' is a float
-MISSING_MAKES_FLOAT = ("when a text value is missing, pandas' counts are float64: the column's "
-                       "min, max or sum is 3.0 in pandas and 3 here (to_csv and tolist() give "
-                       "pandas' floats)")
+# Int64 with nulls: the result is marked (Column.float_int), so its reductions, its text and
+# the steps that drop the missing rows read it as pandas' float64 where a value is missing
+MISSING_MAKES_FLOAT = "a text value is missing (its count is NaN)"
 LIST_STR = "list[str]"  # porter's dtype of a column of lists of text (str.split, str.findall)
 
 
@@ -358,17 +357,18 @@ def str_len(call: PandasCall, ctx: RuleContext) -> Value:
     """s.str.len() -> str.len_chars().cast(pl.Int64); on a column of lists list.len().
 
     Handles: characters, not UTF-8 bytes ("Éclair" is 6); Int64 so arithmetic cannot wrap; the
-    number of parts of a list (str.split(...).str.len()).
-    Caveats: pandas gives float64 when a value is missing, Polars Int64 with nulls: the
-    column's min, max or sum prints 3.0 in pandas and 3 here (0.95; to_csv and tolist() give
-    pandas' floats).
+    number of parts of a list (str.split(...).str.len()); pandas gives float64 when a value is
+    missing, Polars Int64 with nulls: the column is marked as pandas' float64 there, so its
+    min, max or sum is 3.0 when a value is missing and 3 when none is, as in pandas.
     """
     column = accessor_column(call)
     ctx.reject_unknown(call)
-    ctx.lower(MISSING_MAKES_FLOAT, 0.95)
     if column.dtype == LIST_STR:
-        return _result(column, column.code.attr("list").method("len").method("cast", INT64), "int")
-    return _result(column, _text(column).method("len_chars").method("cast", INT64), "int")
+        result = _result(column, column.code.attr("list").method("len").method("cast", INT64),
+                         "int")
+    else:
+        result = _result(column, _text(column).method("len_chars").method("cast", INT64), "int")
+    return _replace(result, float_int=MISSING_MAKES_FLOAT)
 
 
 @rule("series.str.zfill")
@@ -699,18 +699,16 @@ def count(call: PandasCall, ctx: RuleContext) -> Value:
     a missing value stays missing.
     Caveats: a pattern that can match the empty string is a TODO (pandas counts empty matches
     at every byte with pyarrow, Python and Polars each otherwise); pandas gives float64 when a
-    value is missing, Polars Int64 with nulls: the column's min, max or sum prints 3.0 in pandas
-    and 3 here (0.95; to_csv and tolist() give pandas' floats).
+    value is missing, Polars Int64 with nulls: marked as str.len() is.
     """
     column = text_column(call, ctx)
     ctx.reject_unknown(call, "pat", "flags", positional=2)
-    ctx.lower(MISSING_MAKES_FLOAT, 0.95)
     pattern, compiled = _pattern(call, ctx, 1, test=False)
     if _may_match_empty(compiled):
         raise ctx.todo(f"the pattern {compiled.pattern!r} can match the empty string: each "
                        "engine counts empty matches its own way")
     code = _text(column).method("count_matches", pattern).method("cast", INT64)
-    return _result(column, code, "int")
+    return _replace(_result(column, code, "int"), float_int=MISSING_MAKES_FLOAT)
 
 
 @rule("series.str.findall")
