@@ -349,3 +349,19 @@ def test_text_made_from_columns_of_a_frame_read_in_several_chunks_then_filtered(
             notes.append(f"{row['class_group']}: {row['menu']} plate, check {row['allergen']}")
         """, "notes", data=tmp_path)
     assert "pl.format(" not in text
+
+
+def test_a_timestamp_from_max_keeps_its_own_methods(tmp_path, monkeypatch):
+    # pandas is the reference: last.weekday() is a method of pandas' Timestamp (and of a
+    # datetime); the conversion wrote last.weekday()(), which failed. Invented kiln firings.
+    (tmp_path / "firings.csv").write_text("d,v\n2024-01-05,1\n2024-02-29,2\n,3\n",
+                                          encoding="utf-8")
+    monkeypatch.chdir(tmp_path)
+    both("""
+        import pandas as pd
+        df = pd.read_csv("firings.csv", parse_dates=["d"])
+        last = df["d"].max()
+        first = df["d"].min()
+        facts = [last.weekday(), last.days_in_month, last.is_leap_year, last.month,
+                 last.strftime("%Y-%m"), (last - first).days, last.day_name()]
+        """, "facts", data=tmp_path)

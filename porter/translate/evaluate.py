@@ -1309,9 +1309,10 @@ def _isocalendar_call(node: cst.BaseExpression) -> bool:
 
 
 # pandas Timestamp attributes a Python datetime lacks, written with the datetime's own
+# (weekday() is a method of both: it stays as written)
 _TIMESTAMP_ONLY = {
     "quarter": "(({x}.month - 1) // 3 + 1)", "dayofweek": "{x}.weekday()",
-    "day_of_week": "{x}.weekday()", "weekday": "{x}.weekday()",
+    "day_of_week": "{x}.weekday()",
     "dayofyear": "{x}.timetuple().tm_yday", "day_of_year": "{x}.timetuple().tm_yday",
     "is_month_start": "({x}.day == 1)",
 }
