@@ -616,3 +616,29 @@ def test_astype_nullable_boolean_of_other_numbers_fails_as_in_pandas() -> None:
                      'df["b"] = df["kg"].astype("boolean")\nresult = df\n')
     with pytest.raises(Exception):
         run(result.converted_text)["result"].collect()
+
+
+FERRY = {"ferry.csv": "crossing,fare,deck\n3,1.5,a\n4,2.0,\n5,,c\n"}
+
+
+@pytest.mark.parametrize("build", [
+    pytest.param('out, spare = [], []\nfor i, row in df.iterrows():\n    out.append(row["crossing"] * 2)\n',
+                 id="unpacked empty lists"),
+    pytest.param('out = list()\nfor v in df["fare"]:\n    out.append(v * 2)\n', id="list()"),
+    pytest.param('def make(n):\n    return list(range(n))\nout = make(len(df))\n', id="a helper's list"),
+    pytest.param('out = df["fare"].tolist()\nout.reverse()\n', id="tolist changed in place"),
+    pytest.param('out = sorted(df["crossing"].tolist(), reverse=True)\n', id="sorted"),
+    pytest.param('out = [0] * len(df)\nout[1] = 5\n', id="repeated list"),
+])
+def test_a_name_holding_a_list_is_placed_by_position(build: str, tmp_path) -> None:
+    # pandas puts a list's values one per row; pl.lit(out) would put the whole list in every row
+    source = ('import pandas as pd\ndf = pd.read_csv("ferry.csv")\n' + build
+              + 'df["o"] = out\ndf = df.assign(p=out)\nprint(df["o"].tolist())\n'
+              'df.to_csv("o.csv", index=False)\n')
+    same_text(source, tmp_path, FERRY)
+
+
+def test_a_name_of_unseen_type_holding_one_value_is_broadcast(tmp_path) -> None:
+    source = ('import pandas as pd\ndf = pd.read_csv("ferry.csv")\nk = 7\n'
+              'k = k + 0 if len(df) else 1\ndf["o"] = k\ndf.to_csv("o.csv", index=False)\n')
+    same_text(source, tmp_path, FERRY)

@@ -106,6 +106,11 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
     if isinstance(value, Scalar):
         if value.agg is not None and value.agg.frame.rows == frame.rows:
             return value.agg.code, None
+        if value.pytype is not None and value.pytype.split("[")[0] in ("list", "tuple"):
+            # a list (tolist(), then changed in place: out.reverse()) is placed by position,
+            # one value per row, as pandas places it (pl.lit would put it whole in every row)
+            return emit.call("pl.Series", Code(
+                f"[None if x != x else x for x in {value.code.text}]")), None
         return int64_lit(value.code) if value.pytype == "int" else emit.pl("lit", value.code), None
     if isinstance(value, Opaque) and any(s.status != "converted" for s in value.sites):
         # the script's own function (or another library) given data from a frame: it may well
@@ -125,6 +130,19 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
         return emit.call("pl.Series", Code(f"[None if x != x else x for x in {value.code.text}]")), None
     if isinstance(value, Opaque) and value.pytype == "int":
         return int64_lit(value.code), "int"  # arithmetic on whole numbers (len(df) * 2)
+    if isinstance(value, Opaque) and value.code.text.isidentifier() \
+            and not keyword.iskeyword(value.code.text) and value.pytype is None \
+            and not value.choices:  # (choices: the texts every call of the function passes)
+        # a name porter did not see built (`a, b = [], []`, `list()`, `sorted(...)`, a helper's
+        # list): a list, tuple or range is placed by position, one value per row, as pandas
+        # places it (both raise on another length); anything else is one value for every row
+        # (pl.lit of a list would put the whole list in every row). Decided when it runs.
+        name = value.code.text
+        ctx.lower(f"`{name}` is of a type porter did not see: a list is placed by position, "
+                  "any other value broadcast to every row (decided when it runs); Polars infers "
+                  "a list's type from its Python values", 0.8)
+        return Code(f"(pl.Series([None if x != x else x for x in {name}]) "
+                    f"if isinstance({name}, (list, tuple, range)) else pl.lit({name}))"), None
     if isinstance(value, Opaque):
         ctx.lower(f"`{value.code.text}` is taken to be a single value broadcast to every row", 0.8)
         return emit.pl("lit", value.code), None
