@@ -365,3 +365,18 @@ def test_a_timestamp_from_max_keeps_its_own_methods(tmp_path, monkeypatch):
         facts = [last.weekday(), last.days_in_month, last.is_leap_year, last.month,
                  last.strftime("%Y-%m"), (last - first).days, last.day_name()]
         """, "facts", data=tmp_path)
+
+
+def test_a_column_of_durations_from_a_written_date_as_text(tmp_path, monkeypatch):
+    # pandas is the reference: a date column minus pd.Timestamp(...) is a column of durations,
+    # written "4 days 00:00:00"; the conversion gave it no type and cast it to text, which
+    # Polars refuses for a duration. Invented ferry departures.
+    (tmp_path / "sailings.csv").write_text("b,n\n2024-01-05,1\n2024-02-29,2\n,3\n",
+                                           encoding="utf-8")
+    monkeypatch.chdir(tmp_path)
+    both("""
+        import pandas as pd
+        df = pd.read_csv("sailings.csv", parse_dates=["b"])
+        df["wait"] = df["b"] - pd.Timestamp("2024-01-01")
+        texts = df["wait"].astype(str).tolist()
+        """, "texts", data=tmp_path)

@@ -480,6 +480,8 @@ def value_dtype(value: Value) -> str | None:
         return PYTHON_DTYPES.get(type(value.const))
     if isinstance(value, Scalar) and value.agg is not None and value.agg.dtype == "duration":
         return "duration"  # a sum of durations (arithmetic takes it as one)
+    if isinstance(value, Scalar) and value.pytype == "datetime" and value.expr is not None:
+        return "datetime"  # a date written in the script (pd.Timestamp("2024-01-01"))
     return None
 
 
