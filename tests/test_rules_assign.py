@@ -642,3 +642,30 @@ def test_a_name_of_unseen_type_holding_one_value_is_broadcast(tmp_path) -> None:
     source = ('import pandas as pd\ndf = pd.read_csv("ferry.csv")\nk = 7\n'
               'k = k + 0 if len(df) else 1\ndf["o"] = k\ndf.to_csv("o.csv", index=False)\n')
     same_text(source, tmp_path, FERRY)
+
+
+ORCHARD_ROWS = {"orchard.csv": "row,trees,yield_t\na,1,2.5\nb,4,2.0\nc,3,\n"}
+
+
+@pytest.mark.parametrize("statement", [
+    pytest.param('df.loc[df["trees"] > 2, "trees"] = 3.0', id="whole float under a mask"),
+    pytest.param('df.loc[:, "trees"] = 3.0', id="whole float to every row"),
+    pytest.param('df.loc[df["trees"] > 2, "trees"] = -0.0', id="negative zero"),
+    pytest.param('df.loc[df["trees"] > 2, "trees"] = np.nan', id="NaN makes it float"),
+])
+def test_loc_float_into_an_int_column_keeps_it_int_when_lossless(statement: str, tmp_path) -> None:
+    # pandas writes 3.0 into its int64 column as 3 (the column stays int64: 1, 3, 3)
+    source = ('import numpy as np\nimport pandas as pd\ndf = pd.read_csv("orchard.csv")\n'
+              + statement + '\nprint(df["trees"].tolist(), df["trees"].sum())\n'
+              'df.to_csv("o.csv", index=False)\n')
+    same_text(source, tmp_path, ORCHARD_ROWS)
+
+
+@pytest.mark.parametrize("value", ["3.5", "1e30", "True"])
+def test_loc_lossy_value_into_an_int_column_stays_pandas(value: str) -> None:
+    # pandas refuses them ("Invalid value '3.5' for dtype 'int64'"), whatever the rows
+    result = convert('import pandas as pd\ndf = pd.DataFrame({"trees": [1, 4, 3]})\n'
+                     f'df.loc[df["trees"] > 5, "trees"] = {value}\n')
+    assert any(s.key == "frame.loc_setitem" and s.status == "todo" for s in result.sites)
+    with pytest.raises((TypeError, ValueError)):  # the hand-over fails as pandas does
+        run(result.converted_text)

@@ -9,6 +9,7 @@ from collections.abc import Iterable
 from dataclasses import replace
 
 import keyword
+import math
 
 import libcst as cst
 
@@ -825,6 +826,18 @@ def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("loc assignment to several or computed columns")
     name = column.const
     code, dtype = value_expr(value, frame, ctx)
+    if frame.columns is not None and name in frame.columns and frame.dtype(name) == "int" \
+            and isinstance(value, Opaque) and isinstance(value.const, (float, bool)):
+        # pandas writes a float into its int64 column only when no value is lost (3.0 is 3,
+        # the column stays int64), and refuses 3.5, 1e30 or True ("Invalid value ... for dtype
+        # 'int64'"), whatever the rows; NaN makes the column float64 (value_expr's float null)
+        number = value.const
+        if isinstance(number, bool) or number == number and not (
+                math.isfinite(number) and number.is_integer() and -2**63 <= number < 2**63):
+            raise Unsupported(f"pandas refuses {number!r} in its int64 column {name!r} (the "
+                              "statement stays pandas)")
+        if number == number:
+            code, dtype = int64_lit(int(number)), "int"
     mark = _loc_mark(frame, name, value, dtype, ctx)
     if isinstance(rows, Opaque) and rows.const == slice(None):
         return set_nullable_ints(with_columns(frame, [(name, code, dtype)]), {name: mark})
