@@ -669,3 +669,14 @@ def test_loc_lossy_value_into_an_int_column_stays_pandas(value: str) -> None:
     assert any(s.key == "frame.loc_setitem" and s.status == "todo" for s in result.sites)
     with pytest.raises((TypeError, ValueError)):  # the hand-over fails as pandas does
         run(result.converted_text)
+
+
+def test_loc_new_true_false_or_text_column_is_missing_outside_the_mask(tmp_path) -> None:
+    # pandas makes an object (str) column with NaN outside the mask: tolist() shows nan
+    source = ('import pandas as pd\ndf = pd.read_csv("orchard.csv")\n'
+              'df.loc[df["trees"] > 2, "thinned"] = True\n'
+              'df.loc[df["trees"] > 2, "note"] = "dense"\n'
+              'print(df["thinned"].tolist(), df["thinned"].sum(), df["note"].tolist())\n'
+              'print(df["thinned"].astype(bool).tolist())\n'
+              'df.to_csv("o.csv", index=False)\n')
+    same_text(source, tmp_path, ORCHARD_ROWS)

@@ -862,7 +862,9 @@ def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
         # the column when the frame has it, missing values when it does not (a new column)
         "coalesce", emit.call("pl.selectors.by_name", name, require_all=False), emit.pl("lit", None))
     new = emit.when(ctx.expr(rows, frame), code, kept_values if exists else None)
-    kept = dtype == frame.dtype(name) or not exists and dtype == "float"
+    # a new column of True/False or text is missing outside the mask: pandas' object (str)
+    # column with NaN, as a read with a blank gives (tolist() shows nan there, not None)
+    kept = dtype == frame.dtype(name) or not exists and dtype in ("float", "bool", "str")
     return set_nullable_ints(with_columns(frame, [(name, new, dtype if kept else None)]),
                              {name: mark})
 
