@@ -680,3 +680,13 @@ def test_loc_new_true_false_or_text_column_is_missing_outside_the_mask(tmp_path)
               'print(df["thinned"].astype(bool).tolist())\n'
               'df.to_csv("o.csv", index=False)\n')
     same_text(source, tmp_path, ORCHARD_ROWS)
+
+
+def test_loc_computed_value_into_an_int_column_lowers_confidence(tmp_path) -> None:
+    # pandas keeps int64 when the value is whole (2.0 is written 2), the conversion goes float
+    (tmp_path / "orchard.csv").write_text(ORCHARD_ROWS["orchard.csv"])
+    result = convert('import pandas as pd\ndf = pd.read_csv("orchard.csv")\n'
+                     'df.loc[df["trees"] > 2, "trees"] = df["yield_t"].min()\n'
+                     'df.to_csv("o.csv", index=False)\n', data_dir=str(tmp_path))
+    site = next(s for s in result.sites if s.key == "frame.loc_setitem")
+    assert site.confidence <= 0.8 and "keeps int64" in site.message

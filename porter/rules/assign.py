@@ -838,6 +838,12 @@ def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
                               "statement stays pandas)")
         if number == number:
             code, dtype = int64_lit(int(number)), "int"
+    elif frame.columns is not None and name in frame.columns and frame.dtype(name) == "int" \
+            and (isinstance(value, Scalar) or isinstance(value, Opaque) and not value.is_const) \
+            and dtype != "int" and getattr(value, "pytype", None) != "int":
+        ctx.lower(f"a value computed when the script runs, put into the int column {name!r}: "
+                  "pandas keeps int64 when it is a whole number (2.0 is written 2) and refuses "
+                  "2.5; here a float makes the column float (2.0)", 0.8)
     mark = _loc_mark(frame, name, value, dtype, ctx)
     if isinstance(rows, Opaque) and rows.const == slice(None):
         return set_nullable_ints(with_columns(frame, [(name, code, dtype)]), {name: mark})
