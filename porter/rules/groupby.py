@@ -633,14 +633,9 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         # pandas' value through to_pandas(): a pd.Timestamp, or NaT where there are no values
         # (an empty selection, only missing ones), where item() gave None (printed "None", and
         # max - min failed); text as is, NaN for no text
-        value = column.frame.code.method("select", expr).method("collect").method(
-            "to_series").method("to_pandas").attr("iloc").index(0)
-        agg_column = Column(expr, frame=column.frame, name=column.name, refs=column.refs,
-                            versions=column.versions)
         # day_name(), quarter and the like are written with the datetime's own (evaluate.py),
         # which a Timestamp has too
-        return Scalar(value, pytype="datetime" if column.dtype == "datetime" else None,
-                      agg=agg_column)
+        return _pandas_scalar(column, expr, "datetime" if column.dtype == "datetime" else None)
     if column.float_int is not None and column.dtype == "int" and how in ("sum", "min", "max"):
         return _float_int_reduction(column, code, expr)
     if how == "sum" and column.dtype == "float" and not column.element \
@@ -669,11 +664,17 @@ def _unknown_type_extreme(column: Column, how: str, expr: Code, ctx: RuleContext
     np.int64 / np.float64 for numbers, a pd.Timestamp for a date (NaT for none), text as is."""
     ctx.lower(f"the {how} of a True/False column of unknown type with no values is NaN in "
               "pandas and None here", 0.98)
+    return _pandas_scalar(column, expr)
+
+
+def _pandas_scalar(column: Column, expr: Code, pytype: str | None = None) -> Scalar:
+    """The value of `expr` (one row) as pandas gives it: collected and read through
+    to_pandas() (NaN, NaT, a Timestamp, numpy numbers)."""
     value = column.frame.code.method("select", expr).method("collect").method(
         "to_series").method("to_pandas").attr("iloc").index(0)
     agg_column = Column(expr, frame=column.frame, name=column.name, refs=column.refs,
                         versions=column.versions)
-    return Scalar(value, agg=agg_column)
+    return Scalar(value, pytype=pytype, agg=agg_column)
 
 
 def _numpy_sum(column: Column, code: Code, expr: Code) -> Scalar:

@@ -8,9 +8,10 @@ value is always null on the Polars side; these rules rely on that.
 from __future__ import annotations
 
 import ast
-
 from dataclasses import replace
+import functools
 import math
+from pathlib import Path
 
 from porter.emit import code as emit
 from porter.emit.code import Code
@@ -584,6 +585,13 @@ def float32_possible(ctx: RuleContext) -> bool:
     module = ctx.python_module
     if module is None:
         return True
+    return _float32_in(module, getattr(ctx.schema_lookup, "root", None))
+
+
+@functools.lru_cache(maxsize=16)
+def _float32_in(module: ast.Module, root: Path | None) -> bool:
+    """float32_possible of one script (and data folder), read once: every round and sum of
+    the script asks."""
     for node in ast.walk(module):
         if isinstance(node, ast.Constant) and isinstance(node.value, str) \
                 and node.value in _SMALL_FLOAT_TEXTS:
@@ -595,14 +603,13 @@ def float32_possible(ctx: RuleContext) -> bool:
         if isinstance(node, ast.Call):
             func = node.func
             name = func.attr if isinstance(func, ast.Attribute) else func.id if isinstance(func, ast.Name) else None
-            if name in _BINARY_READERS and not _parquet_without_float32(node, name, ctx):
+            if name in _BINARY_READERS and not _parquet_without_float32(node, name, root):
                 return True
     return False
 
 
-def _parquet_without_float32(node: ast.Call, reader: str, ctx: RuleContext) -> bool:
+def _parquet_without_float32(node: ast.Call, reader: str, root: Path | None) -> bool:
     """A read_parquet of a file under --data none of whose columns is a 32- or 16-bit float."""
-    root = getattr(ctx.schema_lookup, "root", None)
     if reader != "read_parquet" or root is None or not node.args \
             or not isinstance(node.args[0], ast.Constant) or not isinstance(node.args[0].value, str):
         return False
