@@ -231,3 +231,35 @@ def test_dict_and_printed_value_of_nullable_integers_are_pandas_own(tmp_path) ->
               'v = df["m"].iloc[2]\n'
               'print(v + 1)\n')
     same_text(source, tmp_path, {"ferry.csv": "n,k\n1,a\n,b\n3,c\n"})
+
+
+def test_tolist_of_dates_and_durations_prints_pandas_values(tmp_path) -> None:
+    # pandas' tolist() gives Timestamps, Timedeltas, datetime.date objects and NaT for a
+    # missing one; Polars' gave datetime.datetime / datetime.timedelta objects and None, which
+    # print otherwise ([datetime.datetime(2024, 1, 1, 0, 0)] for [Timestamp('2024-01-01 ...')])
+    from support import same_text
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("trips.csv", parse_dates=["start", "end"])
+        df["dur"] = df["end"] - df["start"]
+        print(df["start"].tolist(), df["end"].to_list())
+        print(df["dur"].tolist())
+        print(df["start"].dt.date.tolist(), df["start"].dt.date.values)
+        print(df.groupby("k")["start"].max().tolist())
+        """, tmp_path, {"trips.csv": "k,start,end\na,2024-01-01 00:00:00,2024-01-03 04:00:00\n"
+                                     "b,2024-01-02 06:00:00,\na,,2024-01-04 00:00:00\n"})
+
+
+def test_distinct_dates_and_times_are_pandas_values(tmp_path) -> None:
+    # pandas' unique() of dates is an array of datetime.date objects (tolist() there), of
+    # times a DatetimeArray of Timestamps; the conversion gave a Polars Series, which has no
+    # tolist() (the script stopped)
+    from support import same_text
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("trips.csv", parse_dates=["start"])
+        print(df["start"].dt.date.unique().tolist())
+        print(df["start"].unique().tolist(), len(df["start"].unique()))
+        print(list(df["start"].dt.normalize().unique()))
+        """, tmp_path, {"trips.csv": "k,start\na,2024-01-01 00:00:00\nb,2024-01-02 06:00:00\n"
+                                     "a,\nc,2024-01-01 00:00:00\nd,2024-01-02 08:00:00\n"})

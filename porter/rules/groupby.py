@@ -792,7 +792,8 @@ def unique(call: PandasCall, ctx: RuleContext) -> Value:
     one is float, and tolist() / iterating give numbers.
     Caveats: text, True/False and values of unknown type are a numpy array of Polars' values,
     where a missing value is None, not nan (0.95; None still compares in Polars expressions,
-    nan would not against text); dates and categories stay a Polars Series (0.9: no tolist()).
+    nan would not against text); categories stay a Polars Series (0.9: no tolist()). Dates,
+    times and durations are pandas' own array (date objects, Timestamps, Timedeltas, NaT).
     """
     column = call.receiver
     assert isinstance(column, Column)
@@ -818,6 +819,15 @@ def unique(call: PandasCall, ctx: RuleContext) -> Value:
     if column.dtype in ("str", None):
         ctx.lower("a missing value in the distinct values is None here, nan in pandas", 0.95)
         return Scalar(series.method("to_numpy"), pytype="array")
+    if column.dtype in ("date", "datetime", "duration"):
+        # pandas' own array of the distinct values (pandas finds the same ones again): dates
+        # are datetime.date objects, times Timestamps, durations Timedeltas, NaT for a missing
+        # one, and tolist() is there
+        ctx.handover = True
+        values = series.method("to_pandas")
+        if column.dtype == "date":
+            values = values.attr("dt").attr("date")
+        return Scalar(values.method("unique"), pytype="array")
     ctx.lower(f"the distinct values of a {column.dtype} column are a Polars Series: iterating "
               "gives Python values (None for a missing one), and pandas' array methods such as "
               "tolist() are not there", 0.9)

@@ -36,7 +36,9 @@ def series_values(call: PandasCall, ctx: RuleContext) -> Value:
     (to_pandas()): a missing text is nan there (true, and 'nan' as text), None in Polars;
     tolist() of True/False with a missing value gives nan for it (pandas' object column).
     A column pandas holds as one of its nullable integers (astype("Int64"), isocalendar())
-    gives pandas' own values (to_pandas() with its dtype): ints and <NA>.
+    gives pandas' own values (to_pandas() with its dtype): ints and <NA>. tolist() of dates,
+    times and durations gives pandas' Timestamps, datetime.date objects and Timedeltas, NaT for
+    a missing one (to_pandas()); values of dates is pandas' object array of them.
     Caveats: a column of unknown type gives None for a missing text where pandas gives nan.
     """
     column = call.receiver
@@ -44,6 +46,17 @@ def series_values(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.reject_unknown(call)
     if column.nullable_int and not column.element and not column.frame.index:
         ctx.handover = True  # pandas' own values: ints and <NA> ([1, <NA>, 3])
+        code = handover.to_pandas(column)
+        if call.name == "values":
+            return Scalar(code.attr("values"), pytype="array")
+        return Scalar(code.method(call.name), pytype="list" if call.name in ("tolist", "to_list")
+                      else "array")
+    if column.dtype in ("datetime", "duration", "date") and not column.element \
+            and (call.name in ("tolist", "to_list") or column.dtype == "date"):
+        # pandas' own values: tolist() gives Timestamps and Timedeltas (Polars' datetime and
+        # timedelta print otherwise) and NaT for a missing one (Polars: None); dates are
+        # datetime.date objects in an object array (Polars' to_numpy: datetime64[D])
+        ctx.handover = True
         code = handover.to_pandas(column)
         if call.name == "values":
             return Scalar(code.attr("values"), pytype="array")
