@@ -24,7 +24,7 @@ from porter.translate.context import (
     mark_float_ints, nullable_mark, set_nullable_ints, with_column_updates,
 )
 from porter.rules.strings import LIST_STR, expanded_columns, list_repr
-from porter.translate.handover import makes_periods, orders_categories, text_categories
+from porter.translate.handover import makes_periods, orders_categories, pandas_text, text_categories
 from porter.translate.values import (
     MISSING, NOT_NULLABLE, Column, Frame, Opaque, PandasValue, Parts, Scalar, Value, fresh_token,
 )
@@ -998,6 +998,15 @@ def int_text(column: Column, code: Code, ctx: RuleContext) -> Code:
 def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, str]:
     polars, kind = polars_dtype(target)
     code = column.code.method("fill_null", False) if column.null_is_false else column.code
+    if kind == "str" and column.dtype is None and not column.element:
+        # a type porter does not know (a read without --data, a frame back from pandas):
+        # pandas writes the text (True/False, 1e-05, 7.0, dates, durations as its own)
+        if ctx.nullable_ints_possible:
+            ctx.lower("the script uses pandas' nullable integers, and porter does not know "
+                      "whether this column is one: an integer column holding a missing value "
+                      "is written \"7.0\" here as a plain one is; a nullable one writes \"7\"", 0.9)
+        ctx.handover = True
+        return pandas_text(code), "str"
     if kind == "str" and column.dtype in ("bool", None):
         if column.dtype is None:
             ctx.lower("booleans become true/false in Polars, True/False in pandas", 0.9)

@@ -297,6 +297,9 @@ def to_frame(call: PandasCall, ctx: RuleContext) -> Value:
         column = replace(column, name=name)
     label = column.name if column.name is not None else "0"
     index = column.frame.index
+    if label in index:
+        # pandas holds an index level and a column of one name; a Polars frame cannot
+        raise ctx.todo(f"the column would be named {label!r} like an index key of the Series")
     return Frame(handover.series_frame(column), columns=(*index, label), index=index,
                  dtypes=((label, column.dtype),) if column.dtype else (),
                  labels_intact=column.frame.labels_intact)

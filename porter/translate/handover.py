@@ -144,6 +144,13 @@ def to_pandas(value: Value) -> Code:
             return value.pandas  # type: ignore[attr-defined]  # pandas makes it again (rules/windows.py)
         if value.frame.index:
             name = value.name if value.name is not None else "0"
+            renamed = name if name in value.frame.index else None
+            if renamed is not None:
+                # a Series named like one of its index keys (`df.groupby("k")["k"].count()`):
+                # one Polars frame cannot hold both, so the values go over under a name of
+                # their own and take the key's name back once the key is pandas' index
+                name = "_".join((*value.frame.index, "values"))
+                value = replace(value, name=name)
             kinds = tuple((c, t) for c, t in value.frame.dtypes if c in value.frame.index)
             if value.dtype is not None:
                 kinds += ((name, value.dtype),)
@@ -151,6 +158,8 @@ def to_pandas(value: Value) -> Code:
             made = _as_pandas_made_them(series_frame(value).method("collect").method("to_pandas"),
                                         kinds, (*value.frame.index, name))
             code = _labels(made, value.frame).index(name)
+            if renamed is not None:
+                code = code.method("rename", renamed)
         elif value.dtype == "category":  # categories sorted, as astype("category") made them
             code = (series_frame(value).method("collect").method("to_series")
                     .method("cast", emit.atom("pl.String")).method("to_pandas").method("astype", "category"))
@@ -244,6 +253,18 @@ def _as_pandas_made_them(code: Code, dtypes: tuple[tuple[str, str], ...],
         else:
             code = code.method("assign", emit.atom(f"**{emit.render(made)}"))
     return code
+
+
+def pandas_text(values: Code) -> Code:
+    """A column of a type porter does not know (read without --data, back from pandas after a
+    statement kept there) as pandas' astype(str) writes it: pandas writes the text, from the
+    column as pandas holds it (True/False where Polars writes true/false, Python's repr of a
+    float, 7.0 for an integer column with a missing value, a date alone when every time is
+    midnight, "1 days 02:00:00" for a duration, which Polars casts to no text). The whole
+    column at once (map_batches), as pandas decides some layouts over the whole column; a
+    missing value stays missing."""
+    return values.method("map_batches", emit.atom(
+        "lambda s: pl.from_pandas(s.to_pandas().astype(str))"), return_dtype=emit.atom("pl.String"))
 
 
 def for_display(value: Value) -> Code:

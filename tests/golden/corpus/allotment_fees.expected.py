@@ -250,7 +250,7 @@ def load_plots(path):
         .round(2),
     )
     plots = plots.with_columns(
-        plot_label=pl.lit("P-") + pl.col("plot_no").cast(pl.String),
+        plot_label=pl.lit("P-") + pl.col("plot_no").map_batches(lambda s: pl.from_pandas(s.to_pandas().astype(str)), return_dtype=pl.String),
     )
     return plots
 
