@@ -46,6 +46,15 @@ _COMPONENTS = {"year": "year", "month": "month", "day": "day", "hour": "hour",
 INT32 = emit.atom("pl.Int32")
 
 
+# pandas' integer parts of dates are float64 when a date is missing (NaT), int32 otherwise;
+# Polars keeps integers with nulls. Files written, astype(str) and tolist() decide it from the
+# nulls at run time as pandas does; what reads the numbers themselves does not
+NAT_MAKES_FLOAT = ("a missing date (NaT) makes pandas' result float64: its min, max or sum and "
+                   "a single value print 2024.0 where these print 2024, and a group key or group "
+                   "aggregate of it is written 2024.0 (to_csv, astype(str) and tolist() of the "
+                   "column itself follow the missing values, as pandas does)")
+
+
 def _as_int32(code: Code) -> Code:
     """A date part as pandas types it: int32. Polars' month, day, hour, minute, second,
     quarter and weekday are Int8 and its ordinal_day Int16, where integer arithmetic wraps
@@ -64,9 +73,13 @@ def component(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: the same numbers (January 1 is day 1 in both); missing stays missing; Int32 as
     pandas' int32 (Polars' Int8 and Int16 parts would wrap around in arithmetic).
-    Caveats: pandas' int32 becomes float64 when a value is missing; Polars keeps Int32.
+    Caveats: pandas' int32 becomes float64 when a date is missing (NaT); Polars keeps Int32
+    with nulls: files written, astype(str) and tolist() follow the nulls as pandas does, but a
+    min, max, sum or single value prints 2024 where pandas prints 2024.0, and so does a group
+    key or aggregate of it (0.95).
     """
     column = accessor_column(call)
+    ctx.lower(NAT_MAKES_FLOAT, 0.95)
     code = _dt(column).method(_COMPONENTS[call.name])
     return _result(column, code if call.name == "year" else _as_int32(code), "int")
 
@@ -77,8 +90,10 @@ def weekday(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: pandas counts Monday as 0, Polars (ISO) as 1 (D03); Int32 as pandas' int32
     (Polars' Int8 would wrap around in arithmetic).
+    Caveats: a missing date makes pandas' result float64, as for dt.year (0.95).
     """
     column = accessor_column(call)
+    ctx.lower(NAT_MAKES_FLOAT, 0.95)
     return _result(column, emit.binop(_as_int32(_dt(column).method("weekday")), "-", 1), "int")
 
 
@@ -994,11 +1009,14 @@ def days(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: pandas floors (-1 hour is day -1), Polars' dt.total_days() truncates toward zero;
     integer floor division of the microseconds floors like pandas (D07). NaT stays missing.
     Caveats: a duration kept in nanoseconds (Parquet written by pandas 2) loses what is below a
-    microsecond first, which changes the day only just below a negative whole day.
+    microsecond first, which changes the day only just below a negative whole day; a missing
+    duration makes pandas' result float64, as for dt.year (0.95).
     """
     column = accessor_column(call)
     if column.dtype not in (None, "duration"):
         raise ctx.todo(f"a {column.dtype} column has no .dt.days in pandas")
+    ctx.lower(NAT_MAKES_FLOAT.replace("missing date", "missing duration").replace(
+        "2024", "3"), 0.95)
     code = emit.binop(_dt(column).method("total_microseconds"), "//", emit.atom("86_400_000_000"))
     return _result(column, code, "int")
 
