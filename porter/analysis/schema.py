@@ -63,6 +63,10 @@ class FileSchema(dict[str, str]):
     # columns given dtype "category" whose values all read as numbers or True/False: pandas
     # then makes the categories numbers (007 becomes 7), Polars keeps the text
     typed_categories: tuple[str, ...] = ()
+    # how the file's lines end where Polars' reader (which ends a line at \n only) differs from
+    # pandas' (\n, \r\n or a bare \r): "cr" when every line ends in a bare \r (read with
+    # eol_char="\r"), "mixed" when bare \r and \n both end lines (no reader option does that)
+    line_ends: str | None = None
 
 
 def polars_code(dtype: pl.DataType) -> str | None:
@@ -82,7 +86,7 @@ def merged(schemas: list[FileSchema]) -> FileSchema | None:
     every column's type with `partial` set."""
     first = schemas[0]
     if all(list(s.items()) == list(first.items()) and s.polars == first.polars
-           and s.padded == first.padded for s in schemas):
+           and s.padded == first.padded and s.line_ends == first.line_ends for s in schemas):
         return first
     if any(s.padded for s in schemas):
         return None  # which file's numbers need their spaces stripped is not known
@@ -104,6 +108,8 @@ def merged(schemas: list[FileSchema]) -> FileSchema | None:
     found.missing_ints = frozenset().union(*(s.missing_ints for s in schemas))
     found.no_rows = any(s.no_rows for s in schemas)
     found.implicit_index = any(s.implicit_index for s in schemas)
+    ends = {s.line_ends for s in schemas}
+    found.line_ends = "mixed" if len(ends) > 1 else ends.pop()
     return found
 
 
@@ -126,6 +132,14 @@ class SchemaReader:
         file = self.root / path
         if not file.is_file():
             return None
+        if reader == "csv":
+            ends = _line_ends(file)
+            if ends == "mixed":  # no scan reads it as pandas does: the read is a TODO
+                found = FileSchema()
+                found.line_ends = ends
+                return found
+            if ends == "cr":  # the helpers below read it with eol_char="\r" (scan_kwargs)
+                options = {**options, "lineterminator": "\r"}
         if reader == "csv" and isinstance(options.get("nrows"), int):
             # pandas infers the types of read_csv(nrows=N) from the N rows it reads: porter
             # reads the types of those rows only, from a copy of the file cut after them
@@ -138,6 +152,12 @@ class SchemaReader:
         return self._read_file(reader, file, options)
 
     def _read_file(self, reader: str, file: Path, options: dict[str, Any]) -> dict[str, str] | None:
+        if reader == "csv" and _implicit_index(file, options):
+            # Polars' reader fails on the extra field (and so do the helpers below): the read
+            # is a TODO, whatever the types
+            found = FileSchema()
+            found.implicit_index = True
+            return found
         try:
             if reader == "csv":
                 schema = pl.scan_csv(file, **scan_kwargs(options)).collect_schema()
@@ -168,6 +188,7 @@ class SchemaReader:
             found.implicit_index = _implicit_index(file, options)
             found.wide_ints = tuple(wide)
             found.typed_categories = _typed_categories(file, options)
+            found.line_ends = "cr" if options.get("lineterminator") == "\r" else None
             if found.no_rows:
                 found.polars = None
         return found
@@ -229,6 +250,27 @@ def _first_texts(file: Path, schema: Any, options: dict[str, Any]) -> dict[str, 
         if values:
             found[name] = values[0]
     return found
+
+
+def _line_ends(file: Path) -> str | None:
+    """"cr" when the file's lines end in a bare carriage return, "mixed" when some lines end
+    in one and others in \n (or \r\n), None otherwise; a \r inside a quoted field is a value,
+    not a line's end. pandas ends a line at each of \n, \r\n and \r; Polars at \n only."""
+    import re
+
+    if file.stat().st_size > SAMPLE_SCAN_LIMIT or compression_of(str(file)):
+        return None
+    try:
+        data = file.read_bytes()
+    except OSError:
+        return None
+    if b"\r" not in data:
+        return None
+    data = re.sub(rb'"(?:[^"]|"")*"', b"", data)  # quoted fields hold values, not line ends
+    bare = re.search(rb"\r(?!\n)", data) is not None
+    if not bare:
+        return None
+    return "mixed" if b"\n" in data else "cr"
 
 
 def _implicit_index(file: Path, options: dict[str, Any]) -> bool:

@@ -184,6 +184,18 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         emptied = _emptied_columns(per_column, schema, overrides, dtypes, source, options, ctx)
         if emptied:  # read as text, so that no token is lost to a type Polars infers first
             kwargs["schema_overrides"] = {**overrides, **{c: emit.atom("pl.String") for c, *_ in emptied}}
+    line_ends = getattr(schema, "line_ends", None)
+    if line_ends == "mixed":
+        raise ctx.todo("the file's lines end in a bare carriage return (\\r) beside lines ending "
+                       "in \\n: pandas ends a line at each, Polars' reader at \\n only (it "
+                       "joins lines, or keeps the \\r in the last field)")
+    if line_ends == "cr":
+        # every line ends in a bare \r (old Mac files): pandas reads each as a line, Polars'
+        # reader does when told that \r ends a line
+        kwargs["eol_char"] = "\r"
+        ctx.lower("the file's lines end in a bare carriage return (\\r), which the scan is "
+                  "told: a file of the same name whose lines end otherwise is read as one "
+                  "line", 0.95)
     if getattr(schema, "implicit_index", False):
         raise ctx.todo("the data rows have one field more than the header (a trailing "
                        "separator): pandas reads the first field of each row as the row labels "
@@ -616,6 +628,7 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     if frame.columns is not None and len(frame.dtypes) == len(frame.columns):
         ctx.confidence = max(ctx.confidence, 0.98)  # every column's type is known and handled
     frame = nullable_ints_text(frame, ctx)
+    frame = float32_text(frame, ctx)
     text = csv_text_columns(frame, ctx)
     kinds = {t for _, t in frame.dtypes}
     if CSV_DATETIMES_CONSTANT in {c.text for c in text}:
@@ -803,6 +816,27 @@ def csv_text_columns(frame: Frame, ctx: RuleContext) -> list[Code]:
             ctx.lower(_LIST_REPR_CAVEAT, 0.99)
             out.append(list_repr(emit.col(name)).method("alias", name))
     return out
+
+
+# float32 columns as pandas' to_csv writes them: numpy's text of each value (values.astype(str):
+# 0.1, 1.234567e+06, 1e-04, with the shortest digits of the float32), NaN as an empty field.
+# Polars writes the same digits positionally (1234567.0, 0.0001); PANDAS_CSV_FLOATS' selector
+# no longer finds these columns once they are text
+FLOAT32_TEXT = ("pl.selectors.by_dtype(pl.Float32).map_batches(lambda s: pl.Series(s.name, "
+                "s.to_numpy().astype(str), dtype=pl.String).replace(\"nan\", None), "
+                "return_dtype=pl.String)")
+
+
+def float32_text(frame: Frame, ctx: RuleContext) -> Frame:
+    """`frame` with its float32 columns written as pandas writes them (FLOAT32_TEXT), where
+    the script may hold one (ops.float32_possible)."""
+    from porter.rules.ops import float32_possible
+
+    complete = frame.columns is not None and len(frame.dtypes) == len(frame.columns)
+    if not ({t for _, t in frame.dtypes} & {"float", "other"} or not complete) \
+            or not float32_possible(ctx):
+        return frame
+    return derive(frame, frame.code.method("with_columns", emit.atom(FLOAT32_TEXT)), same_rows=True)
 
 
 def nullable_ints_text(frame: Frame, ctx: RuleContext) -> Frame:

@@ -414,6 +414,8 @@ def scan_kwargs(options: dict[str, Any]) -> dict[str, Any]:
         kwargs["separator"] = options["sep"]
     if "skiprows" in options:
         kwargs["skip_rows"] = options["skiprows"]
+    if "lineterminator" in options:  # lines ending in a bare \r (the schema reader's finding)
+        kwargs["eol_char"] = options["lineterminator"]
     na = options.get("na_values")
     if isinstance(na, str):
         kwargs["null_values"].append(na)

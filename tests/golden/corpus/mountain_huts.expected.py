@@ -207,6 +207,13 @@ grid = (
 )
 (
     grid
+    .with_columns(
+        pl.selectors.by_dtype(pl.Float32)
+        .map_batches(
+            lambda s: pl.Series(s.name, s.to_numpy().astype(str), dtype=pl.String).replace("nan", None),
+            return_dtype=pl.String,
+        ),
+    )
     .with_columns(PANDAS_CSV_ZONED_DATETIMES)
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
@@ -242,6 +249,13 @@ unpaid = (
 )
 (
     unpaid
+    .with_columns(
+        pl.selectors.by_dtype(pl.Float32)
+        .map_batches(
+            lambda s: pl.Series(s.name, s.to_numpy().astype(str), dtype=pl.String).replace("nan", None),
+            return_dtype=pl.String,
+        ),
+    )
     .with_columns(PANDAS_CSV_ZONED_DATETIMES)
     .with_columns(
         pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
