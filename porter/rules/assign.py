@@ -1055,7 +1055,12 @@ def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, st
         ctx.lower("pandas raises on missing values when casting to int; Polars keeps them missing", 0.95)
     if kind in ("int", "float") and column.dtype == "str":
         # pandas reads each text as Python's int()/float() do, around spaces ("12 ", " 3 ")
+        # and with underscores between digits ("1_000" is 1000): two passes take every one
+        # (the first leaves one only where its left digit ended a match, "1_2_3" -> "12_3");
+        # any other underscore stays, and the cast fails as int() fails
         code = code.attr("str").method("strip_chars")
+        for _ in range(2):
+            code = code.attr("str").method("replace_all", "([0-9])_([0-9])", "${1}${2}")
     if kind == "category" and column.dtype not in ("str", "category"):
         if column.dtype is not None:
             raise Unsupported(f"a category of {column.dtype} values: Polars' Categorical holds "

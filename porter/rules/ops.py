@@ -11,6 +11,7 @@ import ast
 from dataclasses import replace
 import functools
 import math
+import re
 from pathlib import Path
 
 from porter.emit import code as emit
@@ -74,6 +75,8 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
     rcode = operand(right, frame, ctx, as_bool=True)
     ltype, rtype = value_dtype(left), value_dtype(right)
     dtype: str | None = None
+    if any(_object_bools_possible(v, ctx) for v in (left, right)):
+        ctx.lower(OBJECT_BOOLS_ARITHMETIC, 0.9)
     if op == "+" and ltype == rtype == "bool":
         return derived_column(column, emit.binop(lcode, "|", rcode), dtype="bool", others=[left, right])
     if op in ("+", "-", "*", "/", "//", "%") and any(_is_nan_constant(v) for v in (left, right)) \
@@ -493,6 +496,74 @@ def logical(call: PandasCall, ctx: RuleContext) -> Value:
     return derived_column(column, code, dtype="bool", null_is_false=nullable, others=[left, right])
 
 
+# A True/False column of the frame (read, stored, or filled) may be one pandas holds as Python
+# objects: one that has or had a missing value (a blank in the file, a map() that missed a
+# key) keeps the object dtype after fillna or dropna. Python's operators then act on each value
+OBJECT_BOOLS_UNARY = (
+    "a True/False column that has or had a missing value (a blank in the file, a map() that "
+    "missed a key) is held by pandas as Python objects, even once filled: ~ of it gives -2 and "
+    "-1 (Python's ~True, ~False), and fails where a value is missing; Polars negates each value")
+OBJECT_BOOLS_ARITHMETIC = (
+    "a True/False column that has or had a missing value (a blank in the file, a map() that "
+    "missed a key) is held by pandas as Python objects: arithmetic gives Python ints beside NaN "
+    "(x * 1 is written 1 where Polars' integer column with a missing value is written 1.0), "
+    "and True + True is 2 (a logical or here)")
+_PLAIN_BOOL_COLUMN = re.compile(r'^pl\.col\("(?:[^"\\]|\\.)*"\)(\.fill_null\((?:True|False)\))?$')
+
+
+def _object_bools_possible(value: Value, ctx: RuleContext) -> bool:
+    """A True/False column pandas may hold as objects: a column of the frame as it was read or
+    stored (or filled), not a comparison or isna() computed here, nor a column the script
+    only ever stores comparisons in (`df["late"] = df["due"] < today`): numpy bools."""
+    if not (isinstance(value, Column) and value.dtype == "bool" and not value.null_is_false
+            and not value.element and _PLAIN_BOOL_COLUMN.match(value.code.text) is not None):
+        return False
+    module = ctx.python_module
+    if module is None or value.name is None or ".fill_null(" in value.code.text:
+        return True
+    return not _numpy_bools_only(module, value.name)
+
+
+# methods whose result is a numpy bool Series in pandas, whatever their receiver holds
+_BOOL_METHODS = frozenset({
+    "isna", "isnull", "notna", "notnull", "isin", "between", "duplicated", "eq", "ne", "lt",
+    "le", "gt", "ge", "contains", "startswith", "endswith", "match", "fullmatch", "isdigit",
+    "isalpha", "isalnum", "isnumeric", "isdecimal", "isspace", "islower", "isupper", "istitle"})
+
+
+def _numpy_bools_only(module: ast.Module, name: str) -> bool:
+    """Whether the script stores into column `name` (df["name"] = ..., assign(name=...)) and
+    every value it stores there is a comparison, a test such as isna(), or ~ & | of them:
+    pandas holds the column as numpy bools then. A column the script never stores was read
+    (a blank makes it objects), and any other value may hold a missing one."""
+    stored: list[ast.expr] = []
+    for node in ast.walk(module):
+        if isinstance(node, (ast.Assign, ast.AugAssign, ast.AnnAssign)):
+            targets = node.targets if isinstance(node, ast.Assign) else [node.target]
+            for target in targets:
+                if isinstance(target, ast.Subscript):
+                    key = target.slice
+                    if isinstance(key, ast.Constant) and key.value == name and node.value is not None:
+                        stored.append(node.value if isinstance(node, ast.Assign) else ast.Constant(None))
+                    elif isinstance(key, ast.Tuple) and any(
+                            isinstance(e, ast.Constant) and e.value == name for e in key.elts):
+                        return False  # df.loc[rows, name] = ...: other rows may be missing
+        elif isinstance(node, ast.keyword) and node.arg == name:
+            stored.append(node.value)
+    return bool(stored) and all(_numpy_bool(v) for v in stored)
+
+
+def _numpy_bool(node: ast.expr) -> bool:
+    if isinstance(node, ast.Compare):
+        return True
+    if isinstance(node, ast.UnaryOp) and isinstance(node.op, (ast.Invert, ast.Not)):
+        return _numpy_bool(node.operand)
+    if isinstance(node, ast.BinOp) and isinstance(node.op, (ast.BitAnd, ast.BitOr, ast.BitXor)):
+        return _numpy_bool(node.left) and _numpy_bool(node.right)
+    return isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
+        and node.func.attr in _BOOL_METHODS
+
+
 @rule("series.unary")
 def unary(call: PandasCall, ctx: RuleContext) -> Value:
     """~mask, -s -> ~expr, -expr.
@@ -502,6 +573,10 @@ def unary(call: PandasCall, ctx: RuleContext) -> Value:
     """
     column = call.receiver
     assert isinstance(column, Column)
+    if call.name in ("~", "-") and _object_bools_possible(column, ctx):
+        # ~ of a True/False column read or stored: pandas may hold it as objects, where
+        # ~True is -2 (OBJECT_BOOLS_UNARY)
+        ctx.lower(OBJECT_BOOLS_UNARY, 0.9)
     if call.name == "~":
         return derived_column(column, emit.unary("~", ctx.bool_expr(column, column.frame)),
                               dtype=column.dtype)

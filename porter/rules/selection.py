@@ -589,8 +589,16 @@ class _QueryBuilder:
                 # a date written as text against a datetime column is a date to pandas
                 self._read_date(left_node, right_node, op)
                 self._read_date(right_node, left_node, op)
+            kinds = {self._kind(left_node), self._kind(right_node)}
+            if op in ("==", "!=") and "str" in kinds and kinds & {"number", "bool"}:
+                # text against a number or True/False ("code == 7" on a text column): pandas
+                # finds no value equal (every row False, True for !=), Polars refuses to compare
+                parts.append(emit.pl("lit", op == "!="))
+                left_node = target.comparator
+                continue
             left = self.operand(left_node)
             if op in ("in", "not in"):
+                right_node = self._comparable_items(left_node, right_node)
                 values = self.operand(right_node)
                 if _may_hold_none(right_node):
                     # pandas matches a missing value against None in the list
@@ -613,6 +621,40 @@ class _QueryBuilder:
         for part in parts[1:]:
             result = emit.binop(result, "&", part)
         return result, nullable
+
+    def _comparable_items(self, column: cst.BaseExpression, items: cst.BaseExpression) -> cst.BaseExpression:
+        """A list of `in` without the values pandas never finds equal to the column's: numbers
+        and True/False in a list for a text column, text for a number or True/False column
+        ("code in [7, 8]" on text matches no row; Polars refuses to compare them)."""
+        kind = self._kind(column)
+        if kind is None or not isinstance(items, (cst.List, cst.Tuple)):
+            return items
+        never = {"number", "bool"} if kind == "str" else {"str"}
+        kept = [e for e in items.elements if self._kind(e.value) not in never]
+        if len(kept) == len(items.elements):
+            return items
+        kept = [e.with_changes(comma=cst.MaybeSentinel.DEFAULT) for e in kept]
+        return cst.List(kept)
+
+    def _kind(self, node: cst.BaseExpression) -> str | None:
+        """"str", "number" or "bool" for an operand whose type is known: a literal, or a
+        column of a known type; None otherwise (an @variable, an expression)."""
+        if isinstance(node, cst.SimpleString):
+            return "str"
+        if isinstance(node, (cst.Integer, cst.Float)):
+            return "number"
+        if isinstance(node, cst.UnaryOperation) and isinstance(node.operator, cst.Minus) \
+                and isinstance(node.expression, (cst.Integer, cst.Float)):
+            return "number"
+        if not isinstance(node, cst.Name) or node.value.startswith("__var__") or node.value == "None":
+            return None
+        if node.value in ("True", "False"):
+            return "bool"
+        name = node.value
+        if name.startswith("__col__"):
+            name = bytes.fromhex(name[len("__col__"):]).decode()
+        dtype = self.frame.dtype(name)
+        return {"str": "str", "int": "number", "float": "number", "bool": "bool"}.get(dtype or "")
 
     def _read_date(self, node: cst.BaseExpression, other: cst.BaseExpression, op: str) -> None:
         """Text compared with a column that holds datetimes is read as pandas reads it: its

@@ -289,7 +289,13 @@ tags = tags.with_columns(
 )
 tags = (
     tags
-    .with_columns(week=parts.struct.field("3").str.strip_chars().cast(pl.Float64))
+    .with_columns(
+        week=parts.struct.field("3")
+        .str.strip_chars()
+        .str.replace_all("([0-9])_([0-9])", "${1}${2}")
+        .str.replace_all("([0-9])_([0-9])", "${1}${2}")
+        .cast(pl.Float64),
+    )
     .collect()
     .lazy()
 )
