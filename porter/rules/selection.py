@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import ast
 import re
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 
 import libcst as cst
 
@@ -15,7 +15,10 @@ from porter.rules import rule
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_names, column_of, derive, select_columns,
 )
-from porter.translate.values import Accessor, Column, Frame, Opaque, Parts, Scalar, Value
+from porter.translate.handover import series_frame, to_pandas
+from porter.translate.values import (
+    Accessor, Column, Frame, Opaque, PandasValue, Parts, Scalar, Value,
+)
 
 
 def frame_of(call: PandasCall) -> Frame:
@@ -437,6 +440,56 @@ def _by_text(frame: Frame, names: Code) -> Code:
     if frame.int_labels_except is None:
         return names
     return emit.atom(f"[str(c) for c in {names.text}]")
+
+
+def _probe(expr: Code) -> Code:
+    """At most one row of a column that leads pandas to the column's dtype: its first value,
+    or a missing value where the column holds one anywhere (an int column with a missing value
+    reaches pandas as float64, a True/False one as object), and no row in an empty frame (an
+    empty int column stays int64)."""
+    return emit.pl("when", emit.unary("~", expr.method("is_null").method("any"))).method(
+        "then", expr.method("head", 1))
+
+
+# The same for every column, defined once at the top of a converted script that reads dtypes.
+DTYPE_PROBE_CONSTANT = "PANDAS_DTYPE_PROBE"
+DTYPE_PROBE_DEFINITION = f"""\
+# One row per column that gives pandas the dtype of the whole column: the first value, or a
+# missing value where the column holds one (pandas makes such an int column float64 and a
+# True/False one object); no row when the frame has none.
+{DTYPE_PROBE_CONSTANT} = {_probe(emit.pl("all")).text}
+"""
+
+
+@rule("frame.dtypes")
+def dtypes(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.dtypes -> pandas' own dtypes of one probe row per column handed over to pandas.
+
+    Handles: pandas names the types itself (int64, str, datetime64[us], category), so code
+    that prints or compares them sees what it saw; the frame is not copied to pandas, only a
+    row that holds a missing value where the column does, which is all that decides the dtype
+    to_pandas() gives (float64 for ints with a missing value, object for True/False ones).
+    """
+    frame = frame_of(call)
+    probe = replace(frame, code=frame.code.method("select", emit.atom(DTYPE_PROBE_CONSTANT)))
+    return PandasValue(to_pandas(probe).attr("dtypes"))
+
+
+@rule("series.dtype")
+def dtype(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.dtype -> pandas' own dtype of one probe value of the column handed over to pandas.
+
+    Handles: as df.dtypes (one row that holds a missing value where the column does)."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    if column.frame.index or getattr(column, "pandas", None) is not None:
+        return PandasValue(to_pandas(column).attr("dtype"))  # the labels go over too
+    name = column.name if column.name is not None else "0"
+    probe = replace(column.frame,
+                    code=series_frame(column).method("select", emit.atom(DTYPE_PROBE_CONSTANT)),
+                    columns=(name,))
+    probe_column = replace(column, code=emit.col(name), frame=probe, null_is_false=False)
+    return PandasValue(to_pandas(probe_column).attr("dtype"))
 
 
 def row_count(frame: Frame) -> Code:

@@ -7,6 +7,7 @@ import libcst as cst
 from porter.analysis.imports import ImportFacts
 from porter.rules.datetimes import GUESS_DEFINITION, GUESS_FUNCTION
 from porter.rules.handover import TEXT_DEFINITION, TEXT_FUNCTION
+from porter.rules.selection import DTYPE_PROBE_CONSTANT, DTYPE_PROBE_DEFINITION
 from porter.rules.io_options import (
     CATEGORY_COUNTS_DEFINITION, CATEGORY_COUNTS_FUNCTION,
     CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION, CSV_DURATIONS_CONSTANT, CSV_LISTS_CONSTANT,
@@ -95,7 +96,8 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (CSV_FLOATS_CONSTANT, CSV_FLOATS_DEFINITION),
                                  (CSV_DURATIONS_CONSTANT, CSV_DURATIONS_DEFINITION),
                                  (CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION),
-                                 (CSV_ZONED_DATETIMES_CONSTANT, CSV_ZONED_DATETIMES_DEFINITION)):
+                                 (CSV_ZONED_DATETIMES_CONSTANT, CSV_ZONED_DATETIMES_DEFINITION),
+                                 (DTYPE_PROBE_CONSTANT, DTYPE_PROBE_DEFINITION)):
         if constant in used and not _defines(module, constant):
             body = _insert_after_imports(body, _constant(definition))
     for function, definition in ((DIVIDE_FUNCTION, DIVIDE_DEFINITION),

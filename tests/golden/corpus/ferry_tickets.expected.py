@@ -11,6 +11,11 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+# One row per column that gives pandas the dtype of the whole column: the first value, or a
+# missing value where the column holds one (pandas makes such an int column float64 and a
+# True/False one object); no row when the frame has none.
+PANDAS_DTYPE_PROBE = pl.when(~pl.all().is_null().any()).then(pl.all().head(1))
+
 # Datetime columns with a time zone as pandas' to_csv writes them: the time always, then the
 # offset (+01:00); no fraction of a second when none has one, milliseconds when they are enough.
 PANDAS_CSV_ZONED_DATETIMES = (
@@ -97,10 +102,7 @@ routes = pl.scan_csv(
     null_values=PANDAS_NA_VALUES,
     infer_schema_length=None,
 )
-# TODO(porter): frame.dtypes: pandas prints its own type names (int64, str, datetime64[us]) and code
-#   compares them; Polars' schema (.collect_schema()) names them otherwise: compare with pl types
-#   instead
-print(tickets.collect().to_pandas().dtypes)
+print(tickets.select(PANDAS_DTYPE_PROBE).collect().to_pandas().dtypes)
 
 tickets = tickets.rename(
     {"Sail Date": "sail_date", "Route": "route_code", "Fare Class": "fare_class"},

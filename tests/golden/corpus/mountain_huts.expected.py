@@ -60,6 +60,11 @@ def pandas_sort_values(frame, by, descending=False, nulls_last=True):
     )
 
 
+# One row per column that gives pandas the dtype of the whole column: the first value, or a
+# missing value where the column holds one (pandas makes such an int column float64 and a
+# True/False one object); no row when the frame has none.
+PANDAS_DTYPE_PROBE = pl.when(~pl.all().is_null().any()).then(pl.all().head(1))
+
 # Datetime columns with a time zone as pandas' to_csv writes them: the time always, then the
 # offset (+01:00); no fraction of a second when none has one, milliseconds when they are enough.
 PANDAS_CSV_ZONED_DATETIMES = (
@@ -140,10 +145,7 @@ huts = (
     .collect()
     .lazy()
 )
-# TODO(porter): frame.dtypes: pandas prints its own type names (int64, str, datetime64[us]) and code
-#   compares them; Polars' schema (.collect_schema()) names them otherwise: compare with pl types
-#   instead
-print(stays.collect().to_pandas().dtypes)
+print(stays.select(PANDAS_DTYPE_PROBE).collect().to_pandas().dtypes)
 
 stays = (
     stays

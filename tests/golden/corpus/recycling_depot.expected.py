@@ -12,6 +12,11 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+# One row per column that gives pandas the dtype of the whole column: the first value, or a
+# missing value where the column holds one (pandas makes such an int column float64 and a
+# True/False one object); no row when the frame has none.
+PANDAS_DTYPE_PROBE = pl.when(~pl.all().is_null().any()).then(pl.all().head(1))
+
 # Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
 # writes 0.00005 and 1.5e-7; NaN as an empty field.
 PANDAS_CSV_FLOATS = (
@@ -51,10 +56,7 @@ week2 = (
     .lazy()
 )
 print(week1.collect_schema().names())
-# TODO(porter): frame.dtypes: pandas prints its own type names (int64, str, datetime64[us]) and code
-#   compares them; Polars' schema (.collect_schema()) names them otherwise: compare with pl types
-#   instead
-print(week2.collect().to_pandas().dtypes)
+print(week2.select(PANDAS_DTYPE_PROBE).collect().to_pandas().dtypes)
 
 drops = pl.concat([week1, week2], how="diagonal_relaxed")
 print((drops.select(pl.len()).collect().item(), len(drops.collect_schema())))
