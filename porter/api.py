@@ -10,6 +10,7 @@ import traceback
 
 import libcst as cst
 
+from porter.analysis.consumers import plotting_arguments
 from porter.mapping import MappingTable, load_table
 from porter.emit.fstrings import fits
 from porter.model import ConversionError, FileResult, InternalError, Options, Site, SiteDraft
@@ -72,6 +73,7 @@ def convert_source(text: str, *, path: str | None = None, options: Options | Non
         lists_possible=bool(LIST_HINTS.search(text)),
         infinities_possible=bool(INFINITY_HINTS.search(text)),
         categories_possible=bool(CATEGORY_HINTS.search(text)),
+        plotted=plotting_arguments(module),
     )
     try:
         translation = translate_module(module, services)

@@ -139,6 +139,9 @@ class Services:
     applied_functions: dict[str, set[int]] = field(default_factory=dict)
     applied_kinds: dict[str, set[str]] = field(default_factory=dict)  # "group", "value", "row"
     python_module: Any = None  # the script as Python's ast.Module, when it parses
+    # arguments of calls into a plotting library (matplotlib, seaborn), by node id, with the
+    # function called: a pandas value given there is handed over on purpose
+    plotted: dict[int, tuple[str, bool]] = field(default_factory=dict)
 
 
 class Evaluator:
@@ -972,23 +975,40 @@ class Evaluator:
     def handed_to_unknown(self, value: Value, node: cst.CSTNode) -> Value:
         """A pandas value passed to code porter does not model: give it the pandas object."""
         line, end_line = self.services.position(node)
-        self.note_handed_over(value)
+        plotting, reads_labels = self.services.plotted.get(id(node), (None, True))
+        if reads_labels:
+            self.note_handed_over(value)
         code = handover.to_pandas(value)
         message = ("passed to code porter does not understand: handed over to pandas with "
                    ".collect().to_pandas(); port that code to take a Polars frame")
         frame = value if isinstance(value, Frame) else value.frame if isinstance(value, Column) else None
-        whole = self.pandas_throughout(value, node)
+        whole = self.pandas_throughout(value, node) if reads_labels else None
         if whole is not None:
             # filtered or sorted on the way (`[df[df.k == "a"], ...]`): pandas runs the whole
             # expression, so the rows keep pandas' labels
             code = whole
-        elif frame is not None and not frame.labels_intact and not frame.index:
+        elif frame is not None and not frame.labels_intact and not frame.index and reads_labels:
             # after a filter or a sort pandas' labels are the original row numbers; the frame
             # handed over is numbered 0..n-1 again (a known gap: labels are not carried yet)
             message += (". Its row labels are renumbered 0..n-1 (pandas kept the original row "
                         "numbers after the filter or sort): check that the code does not read "
                         "them (.loc, .index, alignment with another Series, a plot's x axis)")
         site = SiteDraft("handover.unknown_code", "handover", "todo", 0.0, message, line, end_line)
+        if plotting is not None:
+            # Polars has no plotting that draws the same picture: pandas' objects are what the
+            # library reads (values, the Series' names on the axes, the row labels as x)
+            library = plotting.split(".")[0].split(" ")[0]
+            confidence, message = 1.0, (f"given to {library} ({plotting.split('.')[-1]}), which "
+                                        "draws from pandas objects: handed over with "
+                                        ".collect().to_pandas()")
+            if frame is not None and not frame.labels_intact and not frame.index \
+                    and whole is None and reads_labels:
+                confidence = 0.8
+                message += (". Its row labels are renumbered 0..n-1 (pandas kept the original row "
+                            "numbers after the filter or sort): a plot of one Series draws them "
+                            "as its x values")
+            site = SiteDraft("handover.plotting", "plotting", "handover", confidence, message,
+                             line, end_line)
         return PandasValue(code, sites=value.sites + (site,))
 
     # -- everything else ------------------------------------------------------------------------
