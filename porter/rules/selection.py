@@ -234,16 +234,52 @@ def getitem_mask(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("frame.getitem.slice", "frame.iloc")
 def positional_rows(call: PandasCall, ctx: RuleContext) -> Value:
-    """df[a:b] and df.iloc[a:b] (and df.iloc[a:b, :]) -> .slice / .head / .tail."""
+    """df[a:b] and df.iloc[a:b] (and df.iloc[a:b, :]) -> .slice / .head / .tail;
+    df.iloc[:, 1:3] / [:, [0, 2]] / [:, 0] -> the columns at those positions, by name.
+
+    Handles: column positions count the columns pandas holds as data (not a groupby's keys in
+    the index, which stay); a slice of positions with a step or negative bounds as Python
+    slices a list; one position gives the Series.
+    """
     frame = frame_of(call)
     keys = call.args
-    if len(keys) == 2:
-        if not (isinstance(keys[1], Opaque) and keys[1].const == slice(None)):
-            raise Unsupported("iloc with column positions: select columns by name")
     key = keys[0]
     if not (isinstance(key, Opaque) and isinstance(key.const, slice)):
         raise Unsupported("iloc with a single position returns a row; porter ports row slices")
-    return slice_rows(frame, key.const)
+    rows = slice_rows(frame, key.const)
+    if len(keys) == 2 and not (isinstance(keys[1], Opaque) and keys[1].const == slice(None)):
+        return _columns_at(rows, keys[1], ctx)
+    return rows
+
+
+def _columns_at(frame: Frame, positions: Value, ctx: RuleContext) -> Value:
+    """The columns of `frame` at pandas' positions (iloc's second key), chosen by name."""
+    if frame.columns is None or frame.column_pairs or frame.int_labels_except is not None \
+            or frame.number_labels:
+        raise Unsupported("iloc with column positions of a frame whose columns porter does not "
+                          "know: select columns by name")
+    names = [c for c in frame.columns if c not in frame.index]
+    const = positions.const if isinstance(positions, Opaque) else None
+    if isinstance(const, int) and not isinstance(const, bool):
+        if not -len(names) <= const < len(names):
+            raise Unsupported("a column position out of range (pandas raises IndexError)")
+        return column_of(frame, names[const])
+    if isinstance(const, slice) and all(v is None or isinstance(v, int) and not isinstance(v, bool)
+                                        for v in (const.start, const.stop, const.step)) \
+            and const.step != 0:
+        chosen = names[const]
+    elif isinstance(const, list) and const and all(
+            isinstance(p, int) and not isinstance(p, bool) for p in const):
+        if not all(-len(names) <= p < len(names) for p in const):
+            raise Unsupported("a column position out of range (pandas raises IndexError)")
+        chosen = [names[p] for p in const]
+        if len(set(chosen)) != len(chosen):
+            raise Unsupported("a column chosen twice (pandas repeats it; Polars refuses)")
+    else:
+        raise Unsupported("iloc with column positions computed when the script runs: select "
+                          "columns by name")
+    kept = [*frame.index, *chosen]
+    return select_columns(frame, frame.code.method("select", *kept), kept)
 
 
 def slice_rows(frame: Frame, s: slice) -> Frame:
