@@ -213,3 +213,48 @@ def test_every_golden_and_corpus_conversion_parses_on_311(path):
     result = convert_source(path.read_text(encoding="utf-8"), path=str(path))
     parses_on_oldest(result.converted_text)
     assert not any("internal error" in s.message for s in result.sites)
+
+
+# -- statement forms (round 12): match, annotated and chained assignments, unpacking ----------
+
+@pytest.mark.parametrize("body", [
+    # every kind of case pattern, guards reading frame values, no catch-all
+    'df = pd.read_csv("d.csv")\nmatch df.shape:\n    case (0, _):\n        pass\n'
+    '    case (n, m) if n > m:\n        df = df.head(n)\n    case {"a": x, **kw}:\n        pass\n'
+    '    case [first, *others]:\n        df["x"] = 1\n    case pd.DataFrame() as f:\n        pass\n'
+    'df.to_csv("o.csv", index=False)\n',
+    'df: pd.DataFrame\ndf = pd.read_csv("d.csv")\nx: "pd.DataFrame" = df\n'
+    'y: list[pd.DataFrame] = [df]\ndf["a"] = df["b"] = 0\n',
+    'df = pd.read_csv("d.csv")\na, *b, c = [df, df.head(1), df, df]\n*a, = [df]\n'
+    'a, *b = df, (df)\na = b = a\nx = x = df\n',
+    'df = pd.read_csv("d.csv")\ng: pd.core.groupby.DataFrameGroupBy = df.groupby("k")\n'
+    'print(g["v"].sum())\n',
+])
+def test_statement_forms_convert_and_parse(body):
+    convert(body)
+
+
+def test_file_changes_of_every_kind_convert_and_parse():
+    # the calls that write, move or remove files in all their spellings, and ones that only
+    # look like them (str.replace, df.rename, open for reading)
+    convert('''
+        import os, shutil, subprocess
+        from pathlib import Path
+        p = Path("x") / "d.csv"
+        df = pd.read_csv(p)
+        p.write_text("k\\n1\\n")
+        os.rename(p, "y")
+        open(f"./{p}", mode="w").close()
+        with open("d.csv", "a") as fh:
+            fh.write("x")
+        with open("d.csv") as fh:
+            fh.read()
+        Path("z.csv").unlink()
+        Path("z.csv").open("w").close()
+        "a-b".replace("-", "_")
+        df = df.rename({"k": "key"}, axis=1)
+        subprocess.run(["ls"])
+        shutil.rmtree("old")
+        df.to_csv()
+        print(df)
+    ''')

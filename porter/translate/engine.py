@@ -25,7 +25,7 @@ from porter.translate.functions import (
     ported_where_applied, removed_note,
 )
 from porter.rules.assign import FRAME_STAYS_PANDAS, INTERVAL_MAKERS
-from porter.translate.writes import batch_writes, is_sink_text
+from porter.translate.writes import FileChanges, FreshSchemas, batch_writes, is_sink_text
 from porter.translate.context import PandasCall, grouping_code
 from porter.translate.evaluate import Evaluator, Services, parts_current
 from porter.translate.values import (
@@ -102,6 +102,12 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
         services.python_module = ast.parse(module.code)
     except (SyntaxError, ValueError, RecursionError, MemoryError):
         services.python_module = None
+    # files the script writes, moves or removes: a read of one of them before the change is
+    # collected there (bind), and --data's copy of one written before it is read is stale
+    files = FileChanges(services.python_module)
+    if services.schema_lookup is not None and not isinstance(services.schema_lookup, FreshSchemas):
+        services.schema_lookup = FreshSchemas(services.schema_lookup, files,
+                                              lambda: services.statement_lines)
     # a call of the script's own function that changes its argument in place changes it too
     for name, _, call in _changed_by_functions(module, services.functions):
         services.changed_in_place.setdefault(name, []).append(position(call)[0])
@@ -118,7 +124,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
         services.label_functions, services.pandas_functions = set(), set()
         services.consumers, services.frame_parents = {}, {}
         services.applied_functions, services.applied_kinds = {}, {}
-        walker = _Walker(services, facts, emit_code=False)
+        walker = _Walker(services, facts, emit_code=False, files=files)
         walker.block(module.body, _initial_env(facts), module.default_indent, "")
         updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values)
         if updated == services.functions:
@@ -137,7 +143,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
         services.call_sites = {}
         services.consumers, services.frame_parents = {}, {}
         services.applied_functions, services.applied_kinds = {}, {}
-        walker = _Walker(services, facts, emit_code=False)
+        walker = _Walker(services, facts, emit_code=False, files=files)
         walker.block(module.body, _initial_env(facts), module.default_indent, "")
         updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values)
         if services.labels_needed == labels_before and updated == services.functions:
@@ -146,7 +152,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
 
     services.collect_at = plans_to_collect(services.consumers, services.frame_parents)
     services.call_sites = {}
-    walker = _Walker(services, facts, emit_code=True)
+    walker = _Walker(services, facts, emit_code=True, files=files)
     body, _ = walker.block(module.body, _initial_env(facts), module.default_indent, "")
     new_module = module.with_changes(body=body)
     if walker.sites:
@@ -171,8 +177,10 @@ def _unique(sites: list[SiteDraft]) -> list[SiteDraft]:
 # -- the walk over statements ---------------------------------------------------------------
 
 class _Walker:
-    def __init__(self, services: Services, facts: ImportFacts, emit_code: bool) -> None:
+    def __init__(self, services: Services, facts: ImportFacts, emit_code: bool,
+                 files: FileChanges | None = None) -> None:
         self.services = services
+        self.files = files
         self.facts = facts
         self.emit_code = emit_code
         self.sites: list[SiteDraft] = []
@@ -260,6 +268,8 @@ class _Walker:
             return self.if_stmt(stmt, env, unit, indent)
         if isinstance(stmt, (cst.For, cst.While)):
             return self.loop(stmt, env, unit, indent)
+        if isinstance(stmt, cst.Match):
+            return self.match_stmt(stmt, env, unit, indent)
         if isinstance(stmt, cst.With):
             items = [item.with_changes(item=self.header(item.item, env, item)) for item in stmt.items]
             body, env = self.indented(stmt.body, env, unit, indent)
@@ -379,6 +389,47 @@ class _Walker:
             env_body[name] = env_else[name] = back
         return [stmt.with_changes(test=test, body=body, orelse=orelse), *after], \
             _merge(env_body, env_else)
+
+    def match_stmt(self, stmt: cst.Match, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
+        """`match subject: case ...:` is an `if`/`elif` chain: the subject and each guard are
+        read as an `if` test is, each case body is walked from the names as they were before
+        the statement, and the names hold after it what every path leaves them (a path that
+        matches no case leaves them as they were)."""
+        subject = self.header(stmt.subject, env, stmt)
+        cases = []
+        envs: list[dict[str, Value]] = []
+        catches_all = False
+        for case in stmt.cases:
+            case_env = dict(env)
+            for name in _pattern_names(case.pattern):
+                case_env[name] = Opaque(emit.atom(name))  # what the pattern captures
+            guard = self.header(case.guard, case_env, case) if case.guard is not None else None
+            body, after = self.indented(case.body, case_env, unit, indent)
+            cases.append(case.with_changes(body=body, guard=guard))
+            envs.append(dict(after))
+            catches_all = catches_all or case.guard is None and _catches_all(case.pattern)
+        if not catches_all:
+            envs.append(dict(env))
+        after_lines: list[Any] = []
+        for name in sorted(set.intersection(*(set(e) for e in envs))):
+            # one path handed the frame to pandas, another kept it in Polars: after the
+            # statement it is a pandas frame either way (and comes back to Polars where it can)
+            values = [e[name] for e in envs]
+            if not (any(isinstance(v, PandasValue) for v in values)
+                    and any(isinstance(v, Frame) for v in values)):
+                continue
+            frame = next(v for v in values if isinstance(v, Frame))
+            self.note_handed_over(name, frame)
+            after_lines.append(cst.parse_statement(
+                f"if isinstance({name}, pl.LazyFrame):  # handed to pandas, as other cases do\n"
+                f"    {name} = {name}.collect().to_pandas()\n"))
+            back = PandasValue(emit.atom(name), frame=_after_change(name, frame, None))
+            for e in envs:
+                e[name] = back
+        merged = envs[0]
+        for other in envs[1:]:
+            merged = _merge(merged, other)
+        return [stmt.with_changes(subject=subject, cases=cases), *after_lines], merged
 
     def loop(self, stmt: cst.For | cst.While, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
         if isinstance(stmt, cst.For):
@@ -740,13 +791,14 @@ class _Walker:
         self.statement_key = id(line)
         self.services.statement_lines = self.services.position(line)
         run, self.sink_run = self.sink_run, None
-        for small in line.body:
+        smalls = [part for small in line.body for part in _one_target_each(small)]
+        for small in smalls:
             text, new_sites = self.small(small, env, indent)
             texts.append(text)
             sites += new_sites
             if text is not None:
                 execution: int = id(small)
-                if len(line.body) == 1 and is_sink_text(text):
+                if len(smalls) == 1 and is_sink_text(text):
                     # consecutive writes run as one pl.collect_all (see writes.py); a comment
                     # starts a new run
                     comment = any(e.comment for e in line.leading_lines)
@@ -762,7 +814,7 @@ class _Walker:
         if all(t is None for t in texts):
             return [line.with_changes(leading_lines=[*line.leading_lines, *todo_lines])]
         parts = [t if t is not None else self.services.code_for(s).strip()
-                 for t, s in zip(texts, line.body)]
+                 for t, s in zip(texts, smalls)]
         new_lines = []
         statements = [stmt for part in parts for stmt in cst.parse_module(part + "\n").body]
         if not statements:  # nothing left to write (`df = df`, `df.columns.name = None`)
@@ -812,6 +864,19 @@ class _Walker:
         """A frame whose plan would run more than once is collected once where it is made."""
         return self.statement_key in self.services.collect_at
 
+    def read_changed_later(self) -> bool:
+        """Whether the statement at hand reads a file (pandas reads it there, Polars' scan
+        when the plan is collected) that the script may write, move or remove afterwards:
+        the frame is then collected where it is bound, so that it holds what pandas read."""
+        if self.files is None or not self.files.changes:
+            return False
+        try:
+            tree = ast.parse(self.services.code_for(self.current_small).strip())
+        except (SyntaxError, ValueError, RecursionError):
+            return False
+        lines = self.services.statement_lines
+        return any(self.files.changed_after(path, lines) for path in self.files.read_paths(tree))
+
     def note_parents(self, code: Code, env: dict[str, Value]) -> None:
         """Remember which named frames the plan bound by this statement reads."""
         parents = self.services.frame_parents.setdefault(self.statement_key, set())
@@ -831,6 +896,13 @@ class _Walker:
                 self.period_names.add(stmt.targets[0].target.value)
             else:
                 self.period_names.discard(stmt.targets[0].target.value)
+        annotated: cst.AnnAssign | None = None
+        if isinstance(stmt, cst.AnnAssign) and isinstance(stmt.target, cst.Name) \
+                and stmt.value is not None:
+            # `df: pd.DataFrame = ...` binds the name as `df = ...` does; the annotation is
+            # put back after (see _annotated)
+            annotated, before = stmt, dict(env)
+            stmt = cst.Assign(targets=[cst.AssignTarget(stmt.target)], value=stmt.value)
         back, blocking = self.back_to_polars(stmt, env, indent)
         waiting = {n: v for n, v in env.items() if isinstance(v, PandasValue) and v.frame is not None}
         text, sites = back if back is not None else self.rewrite_small(stmt, env, indent)
@@ -839,9 +911,64 @@ class _Walker:
             # the calls that keep a handed-over frame on pandas are marked, as they would be
             # on a Polars frame: the statement is not left on pandas silently
             sites = [*sites, *(s for s in blocking if s not in sites)]
+        if annotated is not None:
+            return self.annotated(annotated, text, env, before), sites
         if text is not None and _same_code(text, self.services.code_for(stmt)):
             return None, sites  # only the layout would change: the statement stays as written
         return text, sites
+
+    def annotated(self, stmt: cst.AnnAssign, text: str | None, env: dict[str, Value],
+                  before: dict[str, Value]) -> str | None:
+        """The annotation of `name: T = value` put back on the statement that binds the name.
+        A name that now holds a LazyFrame (or a Polars expression) is annotated as one where
+        the script wrote a pandas type: `df: pd.DataFrame = ...` becomes
+        `df: pl.LazyFrame = ...`. Any other annotation stays as written."""
+        assert isinstance(stmt.target, cst.Name) and stmt.value is not None
+        name = stmt.target.value
+        annotation = self.services.code_for(stmt.annotation.annotation)
+        held = env.get(name)
+        polars: str | None = None
+        if isinstance(held, (Frame, Indexed)):
+            polars = "pl.LazyFrame"
+        elif isinstance(held, Column):
+            # an expression kept in the name, or a Series of other rows kept as a frame of
+            # one column (bind)
+            polars = "pl.Expr" if held.code.text == name \
+                else "pl.LazyFrame" if held.frame.code.text == name else ""
+        elif isinstance(held, (Grouped, Parts)):
+            polars = ""
+        if polars is not None and any(
+                isinstance(before.get(n), Module) and before[n].qualname.startswith("pandas")  # type: ignore[union-attr]
+                for n in _names_read(annotation)):
+            annotation = polars  # "": the pandas type is dropped, the name holds another
+        if not annotation:
+            if text is None:
+                text = f"{name} = {self.services.code_for(stmt.value).strip()}"
+            return text
+        if text is None:
+            if annotation == self.services.code_for(stmt.annotation.annotation):
+                return None
+            text = f"{name} = {self.services.code_for(stmt.value).strip()}"
+        if _same_code(text, f"{name} = {self.services.code_for(stmt.value).strip()}") \
+                and annotation == self.services.code_for(stmt.annotation.annotation):
+            return None
+        try:
+            module = cst.parse_module(text + "\n")
+        except cst.ParserSyntaxError:
+            return text
+        body = list(module.body)
+        for i in reversed(range(len(body))):
+            line = body[i]
+            if isinstance(line, cst.SimpleStatementLine) and len(line.body) == 1 \
+                    and isinstance(line.body[0], cst.Assign) and len(line.body[0].targets) == 1 \
+                    and isinstance(line.body[0].targets[0].target, cst.Name) \
+                    and line.body[0].targets[0].target.value == name:
+                bound = cst.AnnAssign(target=cst.Name(name),
+                                      annotation=cst.Annotation(cst.parse_expression(annotation)),
+                                      value=line.body[0].value)
+                body[i] = line.with_changes(body=[bound])
+                break
+        return module.with_changes(body=body).code.rstrip("\n")
 
     def still_on_pandas(self, stmt: cst.BaseSmallStatement, env: dict[str, Value],
                         waiting: dict[str, PandasValue], sites: list[SiteDraft] = ()) -> None:  # type: ignore[assignment]
@@ -1440,7 +1567,8 @@ class _Walker:
             self.note_stale_series(name, value, env)
             self.note_parents(code, env)
             env[name] = replace(value, code=emit.atom(name), sites=(), binding=self.statement_key)
-            if self.emit_code and self.computed_once() and not _is_collected(code):
+            if self.emit_code and (self.computed_once() or self.read_changed_later()) \
+                    and not _is_collected(code):
                 code = code.method("collect").method("lazy")
             if code.text == name:  # `df = df.reset_index()` of a frame with no index
                 return "", list(value.sites)
@@ -1521,6 +1649,8 @@ class _Walker:
                 value = replace(value, frame=replace(frame, columns=columns))
             else:
                 code = frame.code
+            if self.emit_code and self.read_changed_later() and not _is_collected(code):
+                code = code.method("collect").method("lazy")  # see read_changed_later
             self.note_parents(code, env)
             kept = replace(value.frame, code=emit.atom(name), sites=(), binding=self.statement_key)
             env[name] = replace(value, code=handover.to_pandas(kept).method("set_index", value.key),
@@ -2149,6 +2279,90 @@ def _iterates_names(value: Value) -> bool:
     if isinstance(value, Opaque) and value.is_const and isinstance(value.const, (list, tuple)):
         return all(isinstance(v, str) for v in value.const)
     return isinstance(value, Scalar) and value.pytype == "list[str]"
+
+
+def _one_target_each(small: cst.BaseSmallStatement) -> list[cst.BaseSmallStatement]:
+    """`raw = df = value` is `df = value` followed by `raw = df`: two names for one object, as
+    `view = df` binds them (bind hands both to pandas when either is changed in place later).
+    Any other statement is itself."""
+    starred = _starred_unpacking(small)
+    if starred is not None:
+        return starred
+    if not (isinstance(small, cst.Assign) and len(small.targets) > 1
+            and all(isinstance(t.target, cst.Name) for t in small.targets)):
+        return [small]
+    names = [t.target.value for t in small.targets]  # type: ignore[attr-defined]
+    if len(set(names)) != len(names):
+        return [small]
+    last = small.targets[-1]
+    return [cst.Assign(targets=[last], value=small.value),
+            *(cst.Assign(targets=[t], value=cst.Name(names[-1])) for t in small.targets[:-1])]
+
+
+def _starred_unpacking(small: cst.BaseSmallStatement) -> list[cst.BaseSmallStatement] | None:
+    """`first, *rest = [a, b, c]` is `first = a` and `rest = [b, c]` (a starred name always
+    gets a list), when the values are written out and read none of the names bound."""
+    if not (isinstance(small, cst.Assign) and len(small.targets) == 1
+            and isinstance(small.targets[0].target, (cst.Tuple, cst.List))
+            and isinstance(small.value, (cst.Tuple, cst.List))):
+        return None
+    targets, values = small.targets[0].target.elements, small.value.elements
+    stars = [i for i, e in enumerate(targets) if isinstance(e, cst.StarredElement)]
+    if len(stars) != 1 or any(isinstance(e, cst.StarredElement) for e in values) \
+            or not all(isinstance(e.value, cst.Name) for e in targets) \
+            or len(values) < len(targets) - 1:
+        return None
+    names = [e.value.value for e in targets]  # type: ignore[attr-defined]
+    read: set[str] = set()
+
+    class Names(cst.CSTVisitor):
+        def visit_Name(self, node: cst.Name) -> None:
+            read.add(node.value)
+
+    small.value.visit(Names())
+    if read & set(names) or len(set(names)) != len(names):
+        return None
+    star = stars[0]
+    after = len(targets) - star - 1
+    rest = values[star:len(values) - after]
+    bound: list[cst.BaseExpression] = [
+        *(e.value for e in values[:star]),
+        cst.List([e.with_changes(comma=cst.MaybeSentinel.DEFAULT) if i == len(rest) - 1 else e
+                  for i, e in enumerate(rest)]),
+        *(e.value for e in values[len(values) - after:])]
+    return [cst.Assign(targets=[cst.AssignTarget(cst.Name(name))], value=value)
+            for name, value in zip(names, bound)]
+
+
+def _pattern_names(pattern: cst.MatchPattern) -> list[str]:
+    """The names a `case` pattern binds (`case [first, *rest]`, `case {"k": v, **kw}`,
+    `case Point(x=px) as pt`)."""
+    names: list[str] = []
+
+    class Captures(cst.CSTVisitor):
+        def visit_MatchAs(self, node: cst.MatchAs) -> None:
+            if node.name is not None:
+                names.append(node.name.value)
+
+        def visit_MatchStar(self, node: cst.MatchStar) -> None:
+            if node.name is not None:
+                names.append(node.name.value)
+
+        def visit_MatchMapping(self, node: cst.MatchMapping) -> None:
+            if node.rest is not None:
+                names.append(node.rest.value)
+
+    pattern.visit(Captures())
+    return names
+
+
+def _catches_all(pattern: cst.MatchPattern) -> bool:
+    """`case _:` or `case name:` (with no guard) matches every subject."""
+    if isinstance(pattern, cst.MatchAs) and pattern.pattern is None:
+        return True
+    if isinstance(pattern, cst.MatchAs):
+        return _catches_all(pattern.pattern)
+    return isinstance(pattern, cst.MatchOr) and any(_catches_all(p.pattern) for p in pattern.patterns)
 
 
 def _merge(a: dict[str, Value], b: dict[str, Value]) -> dict[str, Value]:
