@@ -284,3 +284,28 @@ def test_starred_unpacking_of_frames(tmp_path: Path) -> None:
         first.to_csv("f.csv", index=False)
         print(len(rest), [len(r) for r in rest])
     """, tmp_path, {"d.csv": D})
+
+
+def test_groupby_and_series_bound_from_a_read_then_overwritten(tmp_path: Path) -> None:
+    # a pending groupby and a Series kept in a name read their file when used
+    same_text("""
+        import pandas as pd
+        g = pd.read_csv("d.csv").groupby("k")
+        s = pd.read_csv("d.csv")["v"]
+        t = pd.read_csv("d.csv")["v"] * 2
+        pd.DataFrame({"k": ["z"], "v": [0]}).to_csv("d.csv", index=False)
+        print(g["v"].sum().tolist(), s.sum(), t.tolist())
+    """, tmp_path, {"d.csv": "k,v\na,1\nb,2\na,3\n"})
+
+
+def test_parquet_read_then_overwritten(tmp_path: Path) -> None:
+    # pandas sums the first file (3); the scan read the second one (9)
+    same_text("""
+        import os
+        import pandas as pd
+        pd.DataFrame({"k": ["a", "b"], "v": [1, 2]}).to_parquet("a.parquet")
+        p = pd.read_parquet("a.parquet")
+        pd.DataFrame({"k": ["z"], "v": [9]}).to_parquet("a.parquet")
+        print(p["v"].sum())
+        os.remove("a.parquet")  # (the files written are compared as text)
+    """, tmp_path, {"d.csv": D})

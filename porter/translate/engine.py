@@ -1594,6 +1594,8 @@ class _Walker:
                 return emit.layout_chain(value.pandas, indent, f"{name} = "), [*value.sites, site]  # type: ignore[attr-defined]
             else:
                 code = handover.series_frame(value)
+                if self.emit_code and self.read_changed_later() and not _is_collected(code):
+                    code = code.method("collect").method("lazy")  # see read_changed_later
                 column = value.name if value.name is not None else "0"
                 known = (*value.frame.index, column)
                 rows = fresh_token()
@@ -1664,6 +1666,10 @@ class _Walker:
             env[name] = replace(value, sites=(), live=True)
             return "", list(value.sites)
         elif isinstance(value, Grouped):
+            if self.emit_code and self.read_changed_later() and not _is_collected(value.frame.code):
+                # see read_changed_later: the frame is read here, before the file changes
+                value = replace(value, frame=replace(
+                    value.frame, code=value.frame.code.method("collect").method("lazy")))
             code = grouping_code(value)
             env[name] = replace(value, code=emit.atom(name), prepared=True, sites=())
         elif isinstance(value, Scalar):
