@@ -18,7 +18,7 @@ from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.io import dtype_spelling, polars_dtype
 from porter.rules.io_options import datetime_text, duration_text, float_text
-from porter.rules.ops import int64_lit
+from porter.rules.ops import MASKED_DTYPES, float32_possible, int64_lit
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
     mark_float_ints, nullable_mark, set_nullable_ints, with_column_updates,
@@ -889,6 +889,14 @@ def _loc_mark(frame: Frame, name: str, value: Value, dtype: str | None,
     return None
 
 
+# astype(str) of a float column that may be float32: numpy's text of each float32 value
+# (values.astype(str)), Python's repr of a float64 one, a missing value missing
+FLOAT_TEXT_EITHER = (
+    "lambda s: pl.Series(s.name, s.to_numpy().astype(str), dtype=pl.String).replace(\"nan\", None) "
+    "if s.dtype == pl.Float32 else pl.Series(s.name, [None if v is None else repr(v) "
+    "for v in s.to_list()], dtype=pl.String)")
+
+
 @rule("frame.astype", "series.astype")
 def astype(call: PandasCall, ctx: RuleContext) -> Value:
     """astype(int / float / str / bool / "category") -> cast.
@@ -932,7 +940,10 @@ def astype(call: PandasCall, ctx: RuleContext) -> Value:
 def cast_mark(target: Value) -> str | None:
     """What astype(target) makes of a column: one of pandas' nullable integers (its name),
     NOT_NULLABLE, or None when the type is not written out (Frame.nullable_ints)."""
-    if isinstance(target, Opaque) and target.const in _NULLABLE_INTS:
+    if isinstance(target, Opaque) and (target.const in _NULLABLE_INTS
+                                       or target.const in MASKED_DTYPES):
+        # pandas' nullable integers, and its other nullable types ("boolean", "string",
+        # "Float64"), whose <NA> comparisons and & | keep (rules/ops.py)
         return target.const
     if isinstance(target, Opaque) and isinstance(target.const, (str, type)):
         return NOT_NULLABLE
@@ -1014,6 +1025,12 @@ def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, st
             # True/False as pandas writes them; a missing value stays missing (pandas keeps
             # the NaN of a True/False column read with a blank: it is not "False")
             return code.method("replace_strict", {True: "True", False: "False"}), "str"
+    if kind == "str" and column.dtype == "float" and float32_possible(ctx):
+        # a float32 column is written with numpy's text of float32 values (0.1, 1.234567e+06,
+        # 1e-04), a float64 one with Python's repr (5e-05): which one it is, is seen when the
+        # script runs
+        return code.method("fill_nan", None).method(
+            "map_batches", emit.atom(FLOAT_TEXT_EITHER), return_dtype=emit.atom("pl.String")), "str"
     if kind == "str" and column.dtype == "float":
         return float_text(code), "str"  # Python's repr: 5e-05 where Polars writes 0.00005
     if kind == "str" and column.dtype == LIST_STR:

@@ -13,7 +13,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.elementwise import body_expression
-from porter.rules.ops import float32_possible
+from porter.rules.ops import float32_possible, small_ints_possible
 from porter.rules.io_options import (
     CATEGORY_COUNTS_FUNCTION, DIVIDE_FUNCTION, QUANTILE_FUNCTION, UNSTACKED_FUNCTION,
 )
@@ -623,6 +623,11 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         expr = agg_expr(code, how)
     elif how == "sum" and column.dtype == "bool":
         expr = agg_expr(code, how, "bool")  # Int64, as pandas' int64 (Polars' UInt32 wraps)
+    elif how == "sum" and column.dtype == "int" and not column.element \
+            and small_ints_possible(ctx):
+        # numpy adds an int32 (int16, int8) column into int64; Polars' sum keeps Int32 and
+        # wraps around (2000000000 + 2000000000 is -294967296): the column is cast first
+        expr = code.method("cast", emit.atom("pl.Int64")).method("sum")
     elif how == "sum" and column.dtype == "str":
         # pandas joins the texts (missing ones skipped); of no text at all it gives 0
         ctx.lower("the sum of no text at all is 0 in pandas and \"\" here", 0.98)

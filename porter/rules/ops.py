@@ -59,7 +59,9 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
     integer and boolean operands and finite constants need nothing; an operand that is a
     Timedelta goes to datetimes.timedelta_arithmetic; text times a whole number repeats it
     (_repeated_text); a number column and NaN (x * np.nan) make a float column of missing
-    values, as pandas makes one of NaN.
+    values, as pandas makes one of NaN. pandas' nullable integers (astype("Int64")): x // 0
+    and x % 0 are 0, the result integer. A float column that may be float32 divided by a
+    number stays Float32 (numpy takes the number as float32).
     Caveats: two operands of unknown type (a + b without --data) may be text or dates, where
     fill_nan fails: left out, confidence 0.95 (for - and * only when the script makes no
     datetimes).
@@ -106,13 +108,32 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
         # outermost operation instead: one fill_nan for a chain of arithmetic
         lplain, rplain = _nan_unfilled(lcode), _nan_unfilled(rcode)
         code = emit.binop(lplain, "/", rplain)
-        if _single_divisor(right) and not _exact_reciprocal(right):
+        if _single_divisor(right) and not _exact_reciprocal(right) and ltype == "float" \
+                and float32_possible(ctx):
+            # as below, divided value by value; the divisor takes the column's type (sign() * 0
+            # keeps it, 0 for inf too): a float32 column over a number stays float32 in pandas
+            # (numpy takes the number as float32), where pandas_div's integer divisor makes
+            # the quotient Float64, another number
+            code = emit.binop(lplain, "/", emit.binop(
+                emit.binop(lplain.method("sign"), "*", 0), "+", rplain))
+        elif _single_divisor(right) and not _exact_reciprocal(right):
             # Polars multiplies by the reciprocal of a single divisor: one binary digit off
             # pandas' quotient for about a third of the values (a later round() can flip)
             code = emit.call(DIVIDE_FUNCTION, lplain, rplain)
         if not _is_nonzero_constant(right) or lplain is not lcode or rplain is not rcode:
             code = code.method("fill_nan", None)
         dtype = "float"
+    elif op in ("//", "%") and ltype == rtype == "int" and any(
+            masked(v) and v.nullable_int not in MASKED_DTYPES for v in (left, right)):
+        # pandas' nullable integers: x // 0 and x % 0 are 0 (<NA> for a missing x), and the
+        # result stays integer; Polars' floored // and % agree elsewhere (-7 // 2 is -4,
+        # -7 % 2 is 1) and give null for a zero divisor
+        code = emit.binop(lcode, op, rcode)
+        if isinstance(right, Opaque) and right.const == 0:
+            code = emit.binop(lcode, "*", 0)
+        elif not _is_nonzero_constant(right):
+            code = emit.when(emit.binop(rcode, "==", 0), emit.binop(lcode, "*", 0), code)
+        dtype = "int"
     elif op == "//":
         if rtype == "float" or isinstance(right, Opaque) and isinstance(right.const, float) \
                 and not right.const.is_integer():
@@ -164,6 +185,9 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
                           "the values may be text or dates)", 0.95)
         if ltype in NUMERIC and rtype in NUMERIC:
             dtype = "float" if "float" in (ltype, rtype) else "int"
+        elif "float" in (ltype, rtype) and any(
+                isinstance(v, Scalar) and v.pytype in ("int", "float") for v in (left, right)):
+            dtype = "float"  # a float column and a number computed from the data (its mean)
         elif op == "+" and "str" in (ltype, rtype):
             dtype = "str"
         elif op == "-" and ltype == rtype == "datetime" or op in ("+", "-") and ltype == rtype == "duration":
@@ -364,8 +388,12 @@ def compare(call: PandasCall, ctx: RuleContext) -> Value:
     and written as pl.datetime(...); text compared (== or !=) with a number or True/False
     (a text column with 7, a number column with "7", a True/False column with "true") is never
     equal in pandas: False (True for !=) for every row, where Polars would refuse the
-    comparison or read True as "true".
-    Caveats: with the column's type unknown, text that looks like a date lowers confidence
+    comparison or read True as "true". A column pandas holds as one of its nullable types
+    (astype("Int64" / "Float64" / "string" / "boolean")) compares a missing value as <NA>,
+    as Polars' null: no fill, the result is pandas' boolean (Kleene & |).
+    Caveats: a column that may be of a nullable type porter did not follow (the script makes
+    some, the column's mark is not known) gives False here where pandas gives <NA> (0.9).
+    With the column's type unknown, text that looks like a date lowers confidence
     (0.7): pandas parses it where the column holds datetimes. Polars reads the datetime in the
     column's unit (a column of milliseconds compared with a date holding microseconds).
     """
@@ -380,6 +408,14 @@ def compare(call: PandasCall, ctx: RuleContext) -> Value:
         code = emit.pl("repeat", call.name == "!=", emit.pl("len"))
         return derived_column(column, code, dtype="bool", others=[left, right])
     lcode, rcode = operand(left, frame, ctx), operand(right, frame, ctx)
+    if any(masked(v) for v in (left, right)):
+        # pandas' nullable types (Int64, Float64, string, boolean) compare with three-valued
+        # logic: a missing value on either side gives <NA> (written empty, skipped by sum, a
+        # filter drops its row), as Polars' null does; the result is pandas' boolean
+        code = emit.binop(lcode, call.name, rcode)
+        result = derived_column(column, code, dtype="bool", others=[left, right])
+        return replace(result, nullable_int="boolean")
+    _maybe_masked(ctx, left, right)
     if call.name == "!=":
         if isinstance(right, Opaque) and right.is_const and right.const is not None:
             code = lcode.method("ne_missing", ctx.expr(right, frame))
@@ -394,6 +430,70 @@ def compare(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 _NOT_TEXT = ("int", "float", "bool")
+
+# pandas' nullable dtypes (masked arrays and the "string" dtype): their missing value is <NA>,
+# which comparisons and & | keep (three-valued logic) where numpy's types give False. Marked on
+# the column as its pandas dtype name (Column.nullable_int, Frame.nullable_ints)
+MASKED_DTYPES = {"boolean": "bool", "string": "str", "Float64": "float", "Float32": "float"}
+MASKED_REASON = (
+    "the script makes pandas' nullable types ({kinds}), and porter does not know whether this "
+    "column is one: pandas compares a missing value of one as <NA> (written empty, skipped by "
+    "sum), where a plain column gives False (True for !=), as here")
+
+
+def masked(value: Value) -> bool:
+    """A column pandas holds as one of its nullable types (Int64, Float64, string, boolean)."""
+    return isinstance(value, Column) and bool(value.nullable_int) and not value.element
+
+
+def _maybe_masked(ctx: RuleContext, *values: Value) -> None:
+    """Lower the site where an operand may be one of pandas' nullable types porter did not
+    follow (a column made so by a step that does not mark it, a read with dtype="string")."""
+    kinds = masked_kinds(ctx)
+    others = kinds - {"int"}
+    for value in values:
+        if not isinstance(value, Column) or value.element or value.null_is_false:
+            continue
+        if value.dtype in ("int", None) and value.nullable_int is None and "int" in kinds \
+                or others and (value.dtype is None or value.dtype in others):
+            names = sorted(k for k in kinds if k != "int") + (["Int64"] if "int" in kinds else [])
+            ctx.lower(MASKED_REASON.format(kinds=", ".join(names)), 0.9)
+            return
+
+
+# what in a script makes a column of pandas' nullable types, by porter's dtype of the column
+_MASKED_TEXTS = {"boolean": "bool", "string": "str", "string[python]": "str",
+                 "string[pyarrow]": "str", "Float64": "float", "Float32": "float"}
+_MASKED_NAMES = {"BooleanDtype": "bool", "StringDtype": "str", "Float64Dtype": "float",
+                 "Float32Dtype": "float"}
+
+
+def masked_kinds(ctx: RuleContext) -> frozenset[str]:
+    """The kinds of column ("int", "float", "str", "bool") the script may make one of pandas'
+    nullable types of: it names the dtype ("string", "boolean", "Float64"), or converts with
+    convert_dtypes / dtype_backend (any kind); "int" where it may make nullable integers."""
+    module = ctx.python_module
+    kinds = set(_masked_in(module)) if module is not None else {"float", "str", "bool"}
+    if ctx.nullable_ints_possible:
+        kinds.add("int")
+    return frozenset(kinds)
+
+
+@functools.lru_cache(maxsize=16)
+def _masked_in(module: ast.Module) -> frozenset[str]:
+    kinds: set[str] = set()
+    for node in ast.walk(module):
+        if isinstance(node, ast.Constant) and isinstance(node.value, str) \
+                and node.value in _MASKED_TEXTS:
+            kinds.add(_MASKED_TEXTS[node.value])
+        name = node.attr if isinstance(node, ast.Attribute) else \
+            node.id if isinstance(node, ast.Name) else None
+        if name in _MASKED_NAMES:
+            kinds.add(_MASKED_NAMES[name])
+        if name in ("convert_dtypes", "dtype_backend") or isinstance(node, ast.keyword) \
+                and node.arg == "dtype_backend":
+            kinds.update(("float", "str", "bool"))
+    return frozenset(kinds)
 
 
 def _text_against_other(left: Value, right: Value) -> bool:
@@ -445,7 +545,8 @@ def may_hold_nan(value: Value, *, unknown: bool = False) -> bool:
     the result of map or shift. A comparison (null_is_false) and an expression that is never
     missing are not. `unknown`: a column of unknown type counts too."""
     kinds = ("bool", None) if unknown else ("bool",)
-    if not (isinstance(value, Column) and value.dtype in kinds) or value.null_is_false:
+    if not (isinstance(value, Column) and value.dtype in kinds) or value.null_is_false \
+            or masked(value):
         return False
     return not (value.code.steps and value.code.steps[-1].startswith(_NEVER_MISSING))
 
@@ -459,13 +560,16 @@ def logical(call: PandasCall, ctx: RuleContext) -> Value:
     gives False wherever the left operand (the column under a scalar: True | s) is NaN and
     reads a NaN of the other as False, and the result is True/False (NaN | True is False):
     those rows are missing in the result (pl.when(a.is_not_null())), which stands for
-    pandas' False.
+    pandas' False. pandas' nullable boolean (astype("boolean"), a comparison of a nullable
+    column) follows Kleene logic, as Polars does (_kleene).
     Caveats: a raw column of unknown type (no --data) may be such a column (0.9).
     """
     left, right = call.receiver, call.args[0]
     assert left is not None
     column = base_column(left, right)
     frame = column.frame
+    if any(masked(v) for v in (left, right)):
+        return _kleene(call, ctx, column, left, right)
     for value in (left, right):
         if isinstance(value, Column) and value.dtype is None and not value.null_is_false \
                 and value.name is not None and value.code.text == emit.col(value.name).text:
@@ -496,6 +600,27 @@ def logical(call: PandasCall, ctx: RuleContext) -> Value:
     return derived_column(column, code, dtype="bool", null_is_false=nullable, others=[left, right])
 
 
+def _kleene(call: PandasCall, ctx: RuleContext, column: Column, left: Value,
+            right: Value) -> Value:
+    """& | ^ with pandas' nullable boolean on a side: Kleene logic, as Polars' (<NA> | True is
+    True, <NA> | False and <NA> ^ x are <NA>, <NA> & False is False); a comparison of numpy's
+    types on the other side is False where it met a missing value (filled). A True/False
+    column with blanks (pandas' objects: True, False, NaN) beside one is left to pandas."""
+    frame = column.frame
+    codes = []
+    for value in (left, right):
+        if not masked(value) and (may_hold_nan(value, unknown=True)
+                                  or isinstance(value, Column) and value.dtype not in ("bool",)):
+            raise Unsupported("pandas' nullable boolean beside a column that may hold True/False "
+                              "with blanks (Python objects: NaN | <NA> is True in pandas)")
+        codes.append(ctx.bool_expr(value, frame) if isinstance(value, Column)
+                     else operand(value, frame, ctx))
+    _maybe_masked(ctx, *(v for v in (left, right) if not masked(v)))
+    code = emit.binop(codes[0], call.name, codes[1])
+    result = derived_column(column, code, dtype="bool", others=[left, right])
+    return replace(result, nullable_int="boolean")
+
+
 # A True/False column of the frame (read, stored, or filled) may be one pandas holds as Python
 # objects: one that has or had a missing value (a blank in the file, a map() that missed a
 # key) keeps the object dtype after fillna or dropna. Python's operators then act on each value
@@ -516,7 +641,7 @@ def _object_bools_possible(value: Value, ctx: RuleContext) -> bool:
     stored (or filled), not a comparison or isna() computed here, nor a column the script
     only ever stores comparisons in (`df["late"] = df["due"] < today`): numpy bools."""
     if not (isinstance(value, Column) and value.dtype == "bool" and not value.null_is_false
-            and not value.element and _PLAIN_BOOL_COLUMN.match(value.code.text) is not None):
+            and not value.element and not masked(value) and _PLAIN_BOOL_COLUMN.match(value.code.text) is not None):
         return False
     module = ctx.python_module
     if module is None or value.name is None or ".fill_null(" in value.code.text:
@@ -679,6 +804,43 @@ def _float32_in(module: ast.Module, root: Path | None) -> bool:
             func = node.func
             name = func.attr if isinstance(func, ast.Attribute) else func.id if isinstance(func, ast.Name) else None
             if name in _BINARY_READERS and not _parquet_without_float32(node, name, root):
+                return True
+    return False
+
+
+# numpy and pandas names of integers narrower than 64 bits: a script that names none of them
+# and reads only text files holds no such column
+_SMALL_INT_TEXTS = frozenset({"int32", "int16", "int8", "uint32", "uint16", "uint8", "Int32",
+                              "Int16", "Int8", "UInt32", "UInt16", "UInt8", "i4", "i2", "i1",
+                              "<i4", "<i2", "u4", "u2", "u1", "<u4", "<u2"})
+
+
+def small_ints_possible(ctx: RuleContext) -> bool:
+    """Whether an int column of the script may be narrower than int64 (int32, int16...): numpy
+    adds those into int64 (the sum of two int32 2000000000 is 4000000000), where Polars'
+    sum keeps Int32 and wraps around. The script names such a type or reads a binary file."""
+    module = ctx.python_module
+    if module is None:
+        return True
+    return _small_ints_in(module)
+
+
+@functools.lru_cache(maxsize=16)
+def _small_ints_in(module: ast.Module) -> bool:
+    for node in ast.walk(module):
+        if isinstance(node, ast.Constant) and isinstance(node.value, str) \
+                and node.value in _SMALL_INT_TEXTS:
+            return True
+        name = node.attr if isinstance(node, ast.Attribute) else \
+            node.id if isinstance(node, ast.Name) else None
+        if name in _SMALL_INT_TEXTS or name in ("isocalendar", "Int32Dtype", "Int16Dtype",
+                                                 "Int8Dtype"):
+            return True
+        if isinstance(node, ast.Call):
+            func = node.func
+            called = func.attr if isinstance(func, ast.Attribute) else \
+                func.id if isinstance(func, ast.Name) else None
+            if called in _BINARY_READERS:
                 return True
     return False
 

@@ -478,6 +478,13 @@ def between(call: PandasCall, ctx: RuleContext) -> Value:
     if closed is None:
         raise Unsupported(f"inclusive={inclusive!r}")
     kwargs = {"closed": closed} if closed != "both" else {}
+    from porter.rules.ops import _maybe_masked, masked
+    if masked(column):
+        # pandas' nullable types (Int64, Float64): a missing value is <NA> here (rules/ops.py)
+        result = derived_column(column, column.code.method("is_between", left, right, **kwargs),
+                                dtype="bool")
+        return replace(result, nullable_int="boolean")
+    _maybe_masked(ctx, column)
     return derived_column(column, column.code.method("is_between", left, right, **kwargs),
                           dtype="bool", null_is_false=True)
 

@@ -349,7 +349,9 @@ def _nullable_result(key: str, call: PandasCall, result: Value) -> Value:
         return replace(result, nullable_int=NOT_NULLABLE)
     given = [call.receiver, *call.args, *call.kwargs.values()]
     inputs = [v.column if isinstance(v, Accessor) else v for v in given]
-    marks = [v.nullable_int for v in inputs if isinstance(v, Column)]
+    # pandas' other nullable types (boolean, string, Float64: rules/ops.py) make no integers
+    marks = [NOT_NULLABLE if v.nullable_int in ("boolean", "string", "Float64", "Float32")
+             else v.nullable_int for v in inputs if isinstance(v, Column)]
     if not marks:
         return result
     nullable = next((m for m in marks if m), None)

@@ -170,10 +170,13 @@ def to_pandas(value: Value) -> Code:
                 code = code.method("map", emit.atom("list"), na_action="ignore")
             elif value.dtype == "date":
                 code = code.attr("dt").attr("date")  # see _as_pandas_made_them
-            elif value.dtype == "bool" and not value.null_is_false:
+            elif value.dtype == "bool" and not value.null_is_false and value.nullable_int != "boolean":
                 code = code.method("fillna", emit.atom('float("nan")'))
             elif value.nullable_int and value.dtype == "int":  # pandas' nullable integers (see Frame)
                 code = code.method("astype", value.nullable_int)
+            elif (value.nullable_int, value.dtype) in (("boolean", "bool"), ("string", "str"),
+                                                       ("Float64", "float"), ("Float32", "float")):
+                code = code.method("astype", value.nullable_int)  # its other nullable types: <NA>
         # a Series pandas made without a name has none (Polars calls it "0")
         return code.method("rename", None) if value.name is None else code
     if isinstance(value, Grouped) and value.pandas is not None:
