@@ -138,6 +138,9 @@ def series_fillna(call: PandasCall, ctx: RuleContext) -> Value:
 
     Caveats: a value of another type (text into numbers, numbers into text) makes a mixed
     object column in pandas: a TODO when the column type is known, lowered confidence when not.
+    A fraction (a float reduction, a float column) into an int column is a TODO: pandas'
+    int64 column holds no missing value and stays int64, where one holding a missing value is
+    float64 and filled; a lazy plan cannot pick the type by the data (fraction_into_ints).
     """
     column = call.receiver
     assert isinstance(column, Column)
@@ -159,11 +162,51 @@ def series_fillna(call: PandasCall, ctx: RuleContext) -> Value:
         # stays integer: fill with the whole number
         code = column.code.method("fill_null", int(value.const))
     else:
+        if column.dtype == "int" and column.float_int is None:
+            name = f"`{column.name or '?'}`"
+            if _float_fill(value):
+                what = "a float column" if isinstance(value, Column) else "a fraction"
+                raise Unsupported(fraction_into_ints(what, name))
+            if _untyped_fill(value):
+                ctx.lower(f"`{_short(value)}` is of a type porter does not know: if it is "
+                          + fraction_into_ints("a fraction", name), 0.8)
         code = column.code.method("fill_null", fill_value(value, column.frame, ctx))
         if column.dtype == "int" and _float_fill(value):
+            # an int column pandas holds as float64 when a step left a value missing
+            # (float_int): filled, it is float (lost_float_ints says what differs)
             _int_filled_with_float(column.name, ctx)
             dtype = "float"
     return derived_column(column, code, dtype=dtype, others=[value])
+
+
+def fraction_into_ints(what: str, names: str) -> str:
+    """Why a fraction filled into an int column is not ported: the type of pandas' result
+    depends on the data."""
+    return (f"{what} filled into the integer column {names}: pandas' "
+            "int64 column holds no missing value, so pandas fills nothing and it stays int64 "
+            "(written 4); where it holds a missing value it is float64, filled (4.0, 0.5). "
+            "Polars must pick the type before it sees the data: fill_null makes it Float64 "
+            "either way")
+
+
+def _plain_ints(frame: Frame) -> list[str]:
+    """The frame's int columns that pandas holds as int64 (no missing value): not those a step
+    may have made float64 (Frame.float_ints), named as the messages name them."""
+    marked = dict(frame.float_ints)
+    return [f"`{c}`" for c, t in frame.dtypes if t == "int" and c not in marked]
+
+
+def _untyped_fill(value: Value) -> bool:
+    """A fill value whose type porter does not know (a name, a reduction of unknown type):
+    it may be a fraction."""
+    if isinstance(value, Opaque):
+        return not value.is_const and value.pytype not in ("int", "bool", "str")
+    return isinstance(value, Scalar) and value.pytype not in ("int", "bool", "str", "float")
+
+
+def _short(value: Value) -> str:
+    text = value.code.text
+    return text if len(text) <= 40 else text[:37] + "..."
 
 
 def _float_fill(value: Value) -> bool:
@@ -252,7 +295,8 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
     columns are ignored, as pandas ignores them.
     Caveats: pandas also writes a number into text columns (and text into numbers), making them
     object: lowered confidence when such columns exist or their types are unknown; a TODO for
-    a dict entry whose value does not fit its known column type.
+    a dict entry whose value does not fit its known column type, and for a fraction (or a
+    float reduction) where int columns are known (fraction_into_ints).
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
@@ -271,6 +315,8 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
             if dtype == "int" and isinstance(v, float) and v.is_integer():
                 v = int(v)  # pandas' int64 column stays integer (as the whole-frame fill below)
             elif dtype == "int" and isinstance(v, float):
+                if name not in dict(frame.float_ints):
+                    raise Unsupported(fraction_into_ints("a fraction", f"`{name}`"))
                 _int_filled_with_float(name, ctx)
                 dtype = "float"
             items.append((name, emit.col(name).method("fill_null", emit.as_expr(v)), dtype))
@@ -299,6 +345,9 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
                 "fill_null", value.const), emit.atom("pl.selectors.integer()").method(
                 "fill_null", int(value.const)))
         elif isinstance(value.const, float):
+            plain = _plain_ints(frame)
+            if plain:
+                raise Unsupported(fraction_into_ints("a fraction", ", ".join(plain)))
             ints = [c for c, t in frame.dtypes if t == "int"]
             if ints or not complete:
                 _int_filled_with_float(", ".join(ints) if ints else "an integer column", ctx)
@@ -326,6 +375,12 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
             code = code.method("with_columns", emit.atom("pl.selectors.string()").method(
                 "fill_null", str(value.const)))
     else:
+        plain = _plain_ints(frame)
+        if plain and _float_fill(value):
+            raise Unsupported(fraction_into_ints("a float", ", ".join(plain)))
+        if plain and _untyped_fill(value):
+            ctx.lower(f"`{_short(value)}` is of a type porter does not know: if it is "
+                      + fraction_into_ints("a fraction", ", ".join(plain)), 0.8)
         code = frame.code.method("with_columns", emit.atom("pl.selectors.numeric()").method(
             "fill_null", fill_value(value, frame, ctx)))
         others = [c for c, t in frame.dtypes if t not in ("int", "float")]
