@@ -855,3 +855,23 @@ def test_int_column_a_left_merge_leaves_missing_is_float_after_fillna(tmp_path):
                     "trips.csv": "boat,route\nB1,R1\nB9,R1\nB2,R2\n",
                     "boats.csv": "boat,dock\nB1,3\nB2,4\n",
                     "docks.csv": "dock,harbour\n3,North\n4,South\n"})
+
+
+def test_nullable_ints_left_unmatched_stay_integers(tmp_path) -> None:
+    # pandas' nullable Int64 stays integer with <NA> where a row finds no match (written 10),
+    # a plain int64 column becomes float64 (10.0); the conversion made both Float64
+    same_text("""
+        import pandas as pd
+        h = pd.read_csv("h.csv")
+        z = pd.read_csv("z.csv")
+        h["n"] = h["beds"]
+        h["beds"] = h["beds"].astype("Int64")
+        m = z.merge(h, on="hut", how="left")
+        m.to_csv("m.csv", index=False)
+        h.merge(z, on="hut", how="right").to_csv("r.csv", index=False)
+        pd.merge(h, z, on="hut", how="outer").to_csv("o.csv", index=False)
+        z["beds"] = [1, 2, 3]
+        h.merge(z, on="hut", how="left").to_csv("s.csv", index=False)
+        print(m["beds"].tolist(), m["n"].tolist(), m["beds"].astype(str).tolist())
+        m.dropna().to_csv("f.csv", index=False)
+    """, tmp_path, {"h.csv": "hut,beds\nH1,10\nH2,6\nH3,7\n", "z.csv": "hut,zone\nH1,A\nH9,B\nH3,C\n"})

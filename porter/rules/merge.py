@@ -16,7 +16,7 @@ import libcst as cst
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.translate.context import PandasCall, RuleContext, Unsupported
+from porter.translate.context import PandasCall, RuleContext, Unsupported, nullable_mark
 from porter.translate.values import Column, Frame, Opaque, Scalar, Value
 
 HOW = {"inner": "inner", "left": "left", "right": "right", "outer": "full", "cross": "cross"}
@@ -119,7 +119,9 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
     if lside.index and rside.index and not (lside.index == rside.index == left_keys):
         raise ctx.todo("both frames keep an index that is not exactly the merge keys: "
                        "call reset_index() first")
+    before = (lside, rside)
     lside, rside, suffix = _suffixes(args, lside, rside, coalesced, ctx)
+    nullable = _nullable_marks((left, right), before, (lside, rside))
     widened = _int_keys_widened(lside, rside)
     lside, rside = _common_key_types(lside, rside)
 
@@ -198,8 +200,11 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
         # a True/False one stays "bool", porter's type for True/False that may hold missing
         # values (as read from a file with blanks): NaN where pandas hands over or lists them
         dtypes = {c: t for c, t in dtypes.items() if c not in changing or t in ("int", "bool")}
+    # pandas' nullable integers (Int64) stay integers with <NA> where a row finds no match
+    # (written 10): only plain int64 columns become float64
     float_ints = tuple((c, "the merge left a row unmatched") for side in optional
-                       for c, t in side.dtypes.items() if t == "int" and c not in side.keys)
+                       for c, t in side.dtypes.items() if t == "int" and c not in side.keys
+                       and not (nullable is not None and nullable.get(c)))
     if indicator is not None:
         # pandas' Categorical of where each row came from, its categories in this order
         left, right = (emit.col(m).method("is_not_null") for m in _SIDE_MARKS)
@@ -223,13 +228,35 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
             "if t[c].has_nulls()])")).method("lazy")
         float_ints = tuple(m for m in float_ints if m[0] not in ints)
         dtypes = {c: t for c, t in dtypes.items() if c not in ints}
-    return Frame(code, columns=columns, labels_intact=True, float_ints=float_ints,
+    marks: dict[str, Any] = {}
+    if nullable is not None:
+        marks = {"nullable_ints": tuple((c, m) for c, m in nullable.items() if m),
+                 "unsure_ints": tuple(c for c, m in nullable.items() if m is None)}
+    return Frame(code, columns=columns, labels_intact=True, float_ints=float_ints, **marks,
                  index=lside.index if lside.index and rside.index else (),
                  dtypes=tuple((c, dtypes[c]) for c in columns if c in dtypes)
                  if columns is not None else tuple(dtypes.items()))
 
 
 _SIDE_MARKS = ("_in_left", "_in_right")
+
+
+def _nullable_marks(frames: tuple[Frame, Frame], before: tuple[_Side, _Side],
+                    after: tuple[_Side, _Side]) -> dict[str, str | None] | None:
+    """Each column of the merged frame that is one of pandas' nullable integers on its side:
+    its dtype name ("Int64"), NOT_NULLABLE, or None where porter does not know; None when the
+    columns or the marks of a side are not known. A key both sides have is one where both
+    agree."""
+    marks: dict[str, str | None] = {}
+    for frame, old, new in zip(frames, before, after):
+        if frame.nullable_ints is None or old.columns is None or new.columns is None:
+            return None
+        for name, renamed in zip(old.columns, new.columns):
+            mark = nullable_mark(frame, name)
+            if renamed in marks and marks[renamed] != mark:
+                mark = None  # a key of both sides, nullable on one of them
+            marks[renamed] = mark
+    return marks
 
 
 def _indicator(args: PandasCall, ctx: RuleContext) -> str | None:
