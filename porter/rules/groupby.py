@@ -28,8 +28,20 @@ AGGREGATIONS = ("sum", "mean", "median", "min", "max", "std", "var", "count", "n
 COUNTS = {"count", "nunique", "size"}
 
 
-def agg_expr(column: Code, how: str, dtype: str | None = None) -> Code:
-    """One pandas aggregation as a Polars expression, with pandas' treatment of missing values."""
+def agg_expr(column: Code, how: str, dtype: str | None = None, *, float32: bool = False) -> Code:
+    """One pandas aggregation as a Polars expression, with pandas' treatment of missing values.
+
+    `float32`: the float column may be float32 (ops.float32_possible). pandas 3.1's group
+    mean of float32 is float64, added in float64 (0.15000000223517418 for 0.1 and 0.2), where
+    the rows come grouped in the order of the sorted keys and no value is missing (its
+    reduceat path), and float32 otherwise (0.15000000596046448, written 0.15): the type
+    depends on the data, which a Polars plan cannot follow."""
+    if how == "mean" and float32 and dtype == "float":
+        raise Unsupported("the group mean of a column that may be float32: pandas gives "
+                          "float64 (added in float64: 0.15000000223517418) where the rows come "
+                          "in the order of the sorted keys and no value is missing, float32 "
+                          "(0.15000000596046448, written 0.15) otherwise; a Polars plan fixes "
+                          "the type before it sees the data")
     if how == "count":  # non-missing values; Int64 so later arithmetic cannot wrap around
         return column.method("count").method("cast", emit.atom("pl.Int64"))
     if how == "nunique":  # pandas does not count missing values
@@ -228,6 +240,15 @@ def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleCo
     """The frame of aggregates, sorted like pandas, as a frame or (for one column) a Series.
 
     `dtypes` are the aggregates' types where known (agg_dtype); the keys keep theirs."""
+    same = [n for n in names if n in grouped.keys]
+    if same:
+        # pandas keeps the key in the index and the aggregate beside it under one name
+        # (written vessel,vessel; as_index=False keeps only the aggregate): a Polars frame
+        # cannot hold two columns of one name
+        raise Unsupported(f"aggregating the group key {same[0]!r} under its own name: pandas "
+                          "keeps the key in its index and the aggregate beside it under one "
+                          "name (as_index=False: the aggregate in place of the key); no Polars "
+                          "frame holds two columns of one name")
     _float_int_aggregates(grouped, exprs, ctx)
     _object_bool_sums(grouped, exprs, ctx)
     order = group_order(grouped) if grouped.sort else None
@@ -404,7 +425,8 @@ def reduce(call: PandasCall, ctx: RuleContext) -> Value:
         return aggregate(grouped, [expr], [], ctx)
     exprs = []
     for name in columns:
-        expr = agg_expr(emit.col(name), how, grouped.frame.dtype(name))
+        expr = agg_expr(emit.col(name), how, grouped.frame.dtype(name),
+                        float32=float32_possible(ctx))
         if how in ("std", "var") and ddof != 1:
             expr = emit.col(name).method(how, ddof=ddof)
         exprs.append(expr)
@@ -448,7 +470,8 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
         if how == "size":
             expr = emit.pl("len").method("cast", emit.atom("pl.Int64"))
         else:
-            expr = agg_expr(emit.col(column), how, grouped.frame.dtype(column))
+            expr = agg_expr(emit.col(column), how, grouped.frame.dtype(column),
+                            float32=float32_possible(ctx))
         exprs.append(expr.method("alias", name))
         names.append(name)
         dtypes.append(agg_dtype(how, grouped.frame.dtype(column)))
@@ -745,7 +768,9 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
     pd.Categorical's categories) lists every category, one no row holds counted 0, in the
     categories' order, which also orders ties when sorted (pandas_category_counts).
     Caveats: a category column made by astype("category") is a TODO (pandas' categories are
-    the values it held when made, which porter does not know after a filter).
+    the values it held when made, which porter does not know after a filter); so is a column
+    named "count" (or "proportion" with normalize=True), whose values and counts pandas gives
+    one name.
     """
     column = call.receiver
     assert isinstance(column, Column)
@@ -756,6 +781,13 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
     if column.dtype == "category":
         raise Unsupported("pandas counts every category of a Categorical, those no row holds "
                           "too, in the categories' order; Polars' Categorical does not know them")
+    if name == "count" or name == "proportion" and call.const("normalize", None, False):
+        # pandas names the counts "count" ("proportion" with normalize=True) and keeps the
+        # values in the index under their own name: a column of that name gives both one name
+        # (written count,count), which no Polars frame holds
+        raise Unsupported(f"counting the values of a column named {name!r}: pandas keeps them "
+                          f"in the index under that name beside the counts ({name},{name} "
+                          "written); a Polars frame cannot hold two columns of one name")
     frame = column.frame.code.method("select", column.code if column.code.text == emit.col(name).text
                                      else column.code.method("alias", name))
     if call.const("dropna", None, True):
@@ -1036,7 +1068,7 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
     groups = [*keys, columns]
     code = frame.code.method("drop_nulls", groups).method("group_by", groups).method(
-        "agg", agg_expr(emit.col(values), how, value_dtype))
+        "agg", agg_expr(emit.col(values), how, value_dtype, float32=float32_possible(ctx)))
     if how in ("mean", "median", "min", "max"):
         code = code.method("drop_nulls", values)  # pandas drops a group whose value is missing
     # count cells are integers whatever the values' type (a float column's too)

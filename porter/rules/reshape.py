@@ -16,6 +16,7 @@ from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.groupby import agg_expr, how_name, pivot_sorted
 from porter.rules.io import polars_dtype
+from porter.rules.ops import float32_possible
 from porter.rules.io_options import DIVIDE_FUNCTION, QUANTILE_FUNCTION
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, check_same_rows, column_names, derived_column,
@@ -164,7 +165,8 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
     code = code.method("drop_nulls", names).method("group_by", names)
     fill: Any = None
     if has_values:
-        code = code.method("agg", agg_expr(emit.col(value_name), how, values.dtype))
+        code = code.method("agg", agg_expr(emit.col(value_name), how, values.dtype,
+                                           float32=float32_possible(ctx)))
         if how in ("mean", "median", "min", "max"):
             code = code.method("drop_nulls", value_name)  # pandas drops a group whose value is missing
     else:
