@@ -21,7 +21,7 @@ import libcst as cst
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.translate.context import PandasCall, RuleContext
+from porter.translate.context import MIXED_COLUMN, PandasCall, RuleContext
 from porter.translate import handover
 from porter.translate.values import Column, Frame, Opaque, PandasValue, Scalar, Value
 
@@ -197,6 +197,14 @@ def data_frame(call: PandasCall, ctx: RuleContext) -> Value:
         # become the frame's index; pl.from_pandas would drop them
         raise ctx.todo("a frame from a dict filled key by key: pandas lines its Series up on "
                        "their labels (the index), which Polars would drop")
+    if isinstance(data, Opaque) and data.code.text.isidentifier() \
+            and _rows_of_objects(ctx.python_module, data.code.text):
+        # rows appended in a loop with a list in a cell, or a value of one type or another
+        # (`top if top > 20 else "low"`): pandas keeps such a column as Python objects, which
+        # pl.from_pandas refuses (mixed types) or makes a List column no CSV writer takes and
+        # whose elements pandas writes otherwise (np.int64(3), Timestamp(...))
+        raise ctx.todo(f"rows holding lists, or values of several types: pandas {MIXED_COLUMN} "
+                       "(Python objects), which has no Polars type; the frame stays pandas")
     if isinstance(data, Opaque):
         # the shape is only known at run time (a 2-D array is rows, a dict is columns):
         # pandas builds the frame exactly as before, Polars takes it over once
@@ -228,6 +236,52 @@ def _rewritten_call(func: str, call: PandasCall, ctx: RuleContext) -> Code:
         raise ctx.todo(f"an argument porter cannot hand over: {value.code.text}")
     return emit.call(func, *(text(a) for a in call.args),
                      **{k: text(v) for k, v in call.kwargs.items()})
+
+
+_NESTED_CALLS = frozenset({"list", "sorted", "tuple", "set", "dict"})
+_NESTED_METHODS = frozenset({"tolist", "to_list", "unique", "to_numpy", "values", "to_dict",
+                             "split"})
+
+
+def _object_cell(node: ast.expr) -> bool:
+    """Whether a cell value written in a row may be a Python object pandas keeps as it is: a
+    list (tuple, set, dict), or one of two kinds (`a if c else "text"`)."""
+    if isinstance(node, (ast.List, ast.ListComp, ast.Tuple, ast.Set, ast.SetComp, ast.Dict,
+                         ast.DictComp)):
+        return True
+    if isinstance(node, ast.Call):
+        func = node.func
+        if isinstance(func, ast.Name) and func.id in _NESTED_CALLS:
+            return True
+        return isinstance(func, ast.Attribute) and func.attr in _NESTED_METHODS
+    if isinstance(node, ast.Attribute):
+        return node.attr == "values"
+    if isinstance(node, ast.IfExp):
+        texts = [isinstance(b, ast.Constant) and isinstance(b.value, str) or isinstance(b, ast.JoinedStr)
+                 for b in (node.body, node.orelse)]
+        nones = [isinstance(b, ast.Constant) and b.value is None for b in (node.body, node.orelse)]
+        return texts[0] != texts[1] and not any(nones) or _object_cell(node.body) \
+            or _object_cell(node.orelse)
+    return False
+
+
+def _rows_of_objects(module: object, name: str) -> bool:
+    """Whether the script appends rows to the list `name` (`name.append({...})` or a tuple or
+    list of values) with a cell that may be a Python object pandas keeps as it is
+    (_object_cell)."""
+    if not isinstance(module, ast.Module):
+        return False
+    for node in ast.walk(module):
+        if not (isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute)
+                and node.func.attr == "append" and isinstance(node.func.value, ast.Name)
+                and node.func.value.id == name and len(node.args) == 1):
+            continue
+        row = node.args[0]
+        cells = row.values if isinstance(row, ast.Dict) else row.elts \
+            if isinstance(row, (ast.Tuple, ast.List)) else []
+        if any(cell is not None and _object_cell(cell) for cell in cells):
+            return True
+    return False
 
 
 def _filled_by_key(module: object, name: str) -> bool:

@@ -27,7 +27,7 @@ from porter.rules.strings import LIST_STR, list_repr
 from porter.translate import handover
 from porter.translate.context import (PandasCall, RuleContext, Unsupported, derive,
                                      nullable_columns, select_columns)
-from porter.translate.values import Frame, Module, Opaque, Scalar, Value
+from porter.translate.values import Frame, Module, Opaque, PandasValue, Scalar, Value
 
 READ_CSV_IGNORED = {"low_memory", "engine", "memory_map", "on_bad_lines"}
 
@@ -528,7 +528,24 @@ def read_parquet(call: PandasCall, ctx: RuleContext) -> Value:
     """
     ctx.reject_unknown(call, "path", "columns", "engine", positional=1)
     source = call.arg("path", 0)
-    schema = ctx.input_schema("parquet", _paths(source), {})
+    path = _paths(source)
+    schema = ctx.input_schema("parquet", path, {})
+    pandas = _pandas_name(ctx)
+    written = isinstance(path, str) and _pandas_may_write_parquet(ctx.python_module, path)
+    if (written or any(c.startswith("__index_level_") for c in schema or ())) \
+            and pandas is not None:
+        # pandas stores a frame's row labels in the file (a filtered or sorted frame's as a
+        # column __index_level_0__, others as metadata) and its read_parquet restores them as
+        # the row labels; Polars reads such a column as a column and the metadata not at all.
+        # The script writes this file itself, where that write may stay on pandas, or the file
+        # holds such a column: the frame stays pandas
+        ctx.handover = True
+        ctx.lower("pandas may have stored row labels in this file (the script writes it, or it "
+                  "holds __index_level_0__), which read_parquet restores as the row labels; "
+                  "Polars would read them as a column or not at all: read by pandas", 1.0)
+        args = [a.code for a in call.args]
+        kwargs = {k: v.code for k, v in call.kwargs.items()}
+        return PandasValue(emit.call(f"{pandas}.read_parquet", *args, **kwargs))
     frame = Frame(emit.pl("scan_parquet", source.code),
                   columns=tuple(schema) if schema else None,
                   dtypes=tuple((schema or {}).items()))
@@ -540,6 +557,34 @@ def read_parquet(call: PandasCall, ctx: RuleContext) -> Value:
     if columns is not None:
         frame = select_columns(frame, frame.code.method("select", *columns), list(columns))
     return frame
+
+
+def _pandas_name(ctx: RuleContext) -> str | None:
+    """The name the script binds pandas to (pd, pandas), or None."""
+    def is_pandas(name: str) -> bool:
+        value = ctx.evaluate(cst.Name(name), {}) if ctx.evaluate is not None else None
+        return isinstance(value, Module) and value.qualname == "pandas"
+
+    return next((n for n in ("pd", "pandas") if is_pandas(n)), None)
+
+
+def _pandas_may_write_parquet(module: object, path: str) -> bool:
+    """Whether the script writes `path` with to_parquet(...) without index=False (or its path
+    is not written out): pandas stores a frame's row labels there."""
+    if not isinstance(module, ast.Module):
+        return False
+    for node in ast.walk(module):
+        if not (isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute)
+                and node.func.attr == "to_parquet"):
+            continue
+        if any(k.arg == "index" and isinstance(k.value, ast.Constant) and k.value.value is False
+               for k in node.keywords):
+            continue
+        target = node.args[0] if node.args else next(
+            (k.value for k in node.keywords if k.arg == "path"), None)
+        if not isinstance(target, ast.Constant) or target.value == path:
+            return True
+    return False
 
 
 def _write_target(call: PandasCall, ctx: RuleContext, name: str) -> Value:
@@ -900,6 +945,12 @@ def to_parquet(call: PandasCall, ctx: RuleContext) -> Value:
     index = call.const("index", None, None)
     if index and not frame.index:
         raise ctx.todo("index=True stores the row labels as a column; add it with with_row_index")
+    if index is None and not frame.index and not frame.labels_intact:
+        # pandas stores row labels 0..n-1 as metadata only, and any others (after a filter
+        # or a sort) in the file: its read_parquet gives them back as the row labels
+        raise ctx.todo("pandas stores the row labels, which are no longer 0..n-1 here, in the "
+                       "file (read_parquet gives them back); Polars writes none: write "
+                       "index=False, or reset_index(drop=True) first")
     if frame.index and index is not False:
         ctx.lower(f"pandas marks {', '.join(frame.index)} as the index in the file's metadata "
                   "and its read_parquet restores them as the row labels (reset_index() then "

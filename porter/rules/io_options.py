@@ -152,12 +152,15 @@ def float_text(number: Code) -> Code:
 # lists of text the way pandas' to_csv writes a Python list: ['a', "it's"], escaped as repr.
 CSV_LISTS_CONSTANT = "PANDAS_CSV_LISTS"
 CSV_LISTS_DEFINITION = """\
-# Columns of lists of text as pandas' to_csv writes them: Python's repr of the list.
+# Columns of lists of text as pandas' to_csv writes them: Python's repr of the list; a missing
+# text in a list is NaN in pandas (agg(list) of a text column).
 PANDAS_CSV_LISTS = pl.format(
     "[{}]",
     pl.selectors.by_dtype(pl.List(pl.String))
     .list.eval(
-        pl.when(
+        pl.when(pl.element().is_null())
+        .then(pl.lit("nan"))
+        .when(
             pl.element().str.contains("'", literal=True)
             & ~pl.element().str.contains('"', literal=True),
         )

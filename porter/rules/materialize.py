@@ -155,8 +155,9 @@ def series_position(call: PandasCall, ctx: RuleContext) -> Value:
     number, text, True/False, a datetime; a negative position counts from the end in both, and
     a position past the end raises in both.
 
-    A printed value of pandas' nullable integers is pandas' own (<NA> for a missing one).
-    Caveats: a missing text is None here, nan in pandas (0.95); slices, lists of positions and
+    A printed value of pandas' nullable integers is pandas' own (<NA> for a missing one); a
+    text is pandas' own (nan for a missing one), a missing text again inside expressions.
+    Caveats: a missing date is None here, NaT in pandas; slices, lists of positions and
     a position computed at run time are TODOs.
     """
     from porter.rules.groupby import scalar_of  # groupby builds on the values taken here
@@ -175,6 +176,12 @@ def series_position(call: PandasCall, ctx: RuleContext) -> Value:
     value = column.code.method("fill_null", False) if column.null_is_false else column.code
     expr = value.method("get", key.const)
     if column.dtype == "str":
-        ctx.lower("a missing text is None here, nan in pandas", 0.95)
+        # the value as pandas gives it: a missing text is nan (Polars' item() gives None),
+        # which a file name or a printed line shows; only the one value crosses to pandas.
+        # Inside Polars expressions it is a missing text again (context.expr_in: "text")
+        ctx.handover = True
+        one = column.frame.code.method("select", expr).method("collect").method("to_series") \
+            .method("to_pandas").attr("iloc").index(0)
+        return replace(scalar_of(column, expr, None), code=one, pytype="text")
     scalar = scalar_of(column, expr, column.dtype if column.dtype in ("int", "float") else None)
     return replace(scalar, pytype="datetime") if column.dtype == "datetime" else scalar

@@ -199,6 +199,11 @@ def expr_in(value: Value, frame: Frame) -> Code:
             # a reduction porter made NaN as pandas has it (the mean of no values): NaN is
             # missing in pandas, so null inside Polars expressions
             return emit.pl("lit", value.code).method("fill_nan", None)
+        if value.pytype == "text":
+            # pandas' text value, nan where it is missing (materialize.series_position):
+            # Polars compares no text with a float, and missing is null in its expressions
+            return emit.atom(f"pl.lit(next(None if v != v else v for v in [{value.code.text}]), "
+                             "dtype=pl.String)")
         return value.code
     if isinstance(value, Opaque):
         if value.is_const and value.code.text.isidentifier() and value.code.text not in (

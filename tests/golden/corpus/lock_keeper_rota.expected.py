@@ -71,12 +71,15 @@ PANDAS_CSV_NUMBER_LISTS = pl.selectors.by_dtype(
     return_dtype=pl.String,
 )
 
-# Columns of lists of text as pandas' to_csv writes them: Python's repr of the list.
+# Columns of lists of text as pandas' to_csv writes them: Python's repr of the list; a missing
+# text in a list is NaN in pandas (agg(list) of a text column).
 PANDAS_CSV_LISTS = pl.format(
     "[{}]",
     pl.selectors.by_dtype(pl.List(pl.String))
     .list.eval(
-        pl.when(
+        pl.when(pl.element().is_null())
+        .then(pl.lit("nan"))
+        .when(
             pl.element().str.contains("'", literal=True)
             & ~pl.element().str.contains('"', literal=True),
         )
