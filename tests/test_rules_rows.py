@@ -57,8 +57,6 @@ PORTS = [
                  id="None does not match a missing number"),
     pytest.param('df["r"] = df["v"].between(1, 3, inclusive="neither")', 'is_between(1, 3, closed="none")',
                  id="between inclusive neither"),
-    pytest.param('df["r"] = df["n"].replace(1, 2.5)', 'pl.col("n").cast(pl.Float64).replace(1, 2.5)',
-                 id="replace int with a fraction makes floats"),
     pytest.param('r = df.replace("a", "A")', 'pl.selectors.string().replace("a", "A")', id="frame replace text"),
 ]
 

@@ -521,7 +521,8 @@ def series_replace(call: PandasCall, ctx: RuleContext) -> Value:
     missing value in both (text columns).
     Caveats: replacing with None in a number or True/False column is a TODO: pandas 3 makes an
     object column of the values and None ([3, None, 2], written 3); lowered where the column's
-    type is not known.
+    type is not known. A fraction in place of a value of an int column is a TODO: pandas makes
+    the column float64 only where the value is found.
     """
     column = call.receiver
     assert isinstance(column, Column)
@@ -538,13 +539,23 @@ def series_replace(call: PandasCall, ctx: RuleContext) -> Value:
         # values and None ([3, None, 2], written 3); Int64 with nulls is pandas' float64
         # (written 3.0, listed [3.0, nan, 2.0])
         if dtype in ("int", "float", "bool"):
+            # (MIXED_COLUMN: the Series pandas makes is not put back into a Polars frame, where
+            # Int64 with nulls would be written 3.0: the frame stays pandas)
             raise Unsupported(f"replacing a value with None in a {dtype} column: pandas makes an "
                               "object column of the values and None ([3, None, 2], written 3), "
-                              "which no Polars type holds")
+                              f"which no Polars type holds (it {MIXED_COLUMN})")
         if dtype is None:
             ctx.lower("replacing a value with None in a column of unknown type: in a number or "
                       "True/False column pandas makes an object column ([3, None, 2], written "
                       "3), here one with missing values (written 3.0)", 0.9)
+    if _fractional_replacement(args) and dtype == "int" and column.float_int is None:
+        # pandas' int64 column becomes float64 only where a value to replace is found (2.5 in
+        # place of 2; written 1.0, 2.5), and stays int64 where none is (written 1, 2): the
+        # type depends on the data
+        raise Unsupported("replacing a value with a fraction in an integer column: pandas "
+                          "makes it float64 only where the value is found (1.0, 2.5) and "
+                          "keeps int64 where it is not (1, 2); a Polars plan fixes the type "
+                          "before it sees the data")
     if _fractional_replacement(args) and dtype != "float":
         # pandas makes an integer column float to hold 2.5; Polars would truncate it to 2
         code, dtype = code.method("cast", emit.atom("pl.Float64")), "float"
