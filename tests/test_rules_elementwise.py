@@ -951,3 +951,26 @@ def test_pythons_round_without_digits_says_why_where_a_value_may_be_missing() ->
     result = convert(FRAME + 'df["r"] = df["v"].map(lambda x: round(x), na_action="ignore")\n')
     site = next(s for s in result.sites if s.key == "series.map")
     assert site.confidence == 0.95 and "na_action" in site.message, site.message
+
+
+# -- a function whose branches give values of several types ----------------------------------
+
+@pytest.mark.parametrize("expr", [
+    pytest.param('df["t"].map(lambda x: 1 if x == "ab" else "other")', id="map: number or text"),
+    pytest.param('df["n"].map(lambda x: x if x > 3 else "few")', id="map: the value or text"),
+    pytest.param('df.apply(lambda r: r["n"] if r["p"] else "no", axis=1)', id="row-wise apply"),
+    pytest.param('df["n"].map(lambda x: True if x > 3 else 0)', id="True/False or a number"),
+])
+def test_branches_of_several_types_keep_each_value_as_pandas_does(expr: str) -> None:
+    """pandas keeps what the function returns in an object column (1 and "other"); Polars'
+    when/then made one text column ("1"), which compares with 1 as a text (or fails)."""
+    result = differential(FRAME + f'df["r"] = {expr}\nresult = df["r"].tolist()\n'
+                          'ones = int((df["r"] == 1).sum())\n', "result", "ones")
+    assert any(s.key == "series.map" or s.key == "frame.apply" for s in result.sites
+               if s.status == "todo"), [(s.key, s.status) for s in result.sites]
+
+
+def test_branches_of_one_type_beside_a_missing_value_are_ported() -> None:
+    result = differential(FRAME + 'df["r"] = df["t"].map(lambda x: "A" if x == "ab" else None)\n'
+                          'result = df\n')
+    assert not any(s.status == "todo" for s in result.sites)

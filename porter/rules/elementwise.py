@@ -473,6 +473,7 @@ def element_ifexp(call: PandasCall, ctx: RuleContext) -> Value:
     cond = call.receiver
     assert isinstance(cond, Column)
     then, otherwise = call.args
+    _check_one_kind(then, otherwise, ctx)
     # whole numbers in both branches: int64 as pandas makes them (not Polars' Int32)
     then_code, other = int64_branches(then, otherwise,
                                       [_branch(v, cond, ctx) for v in (then, otherwise)])
@@ -487,6 +488,35 @@ def element_ifexp(call: PandasCall, ctx: RuleContext) -> Value:
     kinds = {value_dtype(v) for v in (then, otherwise)}
     return derived_column(cond, code, dtype=kinds.pop() if len(kinds) == 1 else None,
                           others=[v for v in (then, otherwise) if isinstance(v, Column)])
+
+
+# kinds of value whose mix pandas keeps in an object column (each value as it is): a number
+# and a text, True/False and a number (1 and True), a date and a text...
+_KIND_GROUPS = {"int": "number", "float": "number"}
+
+
+def _branch_kind(value: Value) -> str | None:
+    """The kind of value a branch gives, "missing" for None or NaN, None when not known."""
+    if isinstance(value, Opaque) and value.is_const and (
+            value.const is None or isinstance(value.const, float) and value.const != value.const):
+        return "missing"
+    dtype = value_dtype(value)
+    return None if dtype is None else _KIND_GROUPS.get(dtype, dtype)
+
+
+def _check_one_kind(then: Value, otherwise: Value, ctx: RuleContext) -> None:
+    """pandas stores what the function returns as it is: a number in one branch and a text in
+    the other make an object column holding both (1 and "other"), where Polars' when/then
+    turns them into one type (the text "1"), which compares and adds otherwise."""
+    kinds = [_branch_kind(v) for v in (then, otherwise)]
+    known = {k for k in kinds if k not in (None, "missing")}
+    if len(known) > 1:
+        raise Unsupported(f"the branches give values of several types ({' and '.join(sorted(known))}): "
+                          f"the function {MIXED_COLUMN} (each value kept as it is), which no "
+                          f"Polars type holds")
+    if None in kinds and known:
+        ctx.lower(f"one branch's type is not known: where it is not {known.pop()} as the other's, "
+                  f"pandas makes a mixed (object) column and Polars one of a single type", 0.8)
 
 
 def _truth(cond: Column) -> Code:
