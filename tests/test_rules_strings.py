@@ -38,11 +38,10 @@ def _port(before: str, fragment: str) -> pytest.ParameterSet:
 PORTS = [
     _port('df["s"].str.lower()',
           'pl.col("s").str.replace_many({"İ": "i", "Σ": "σ"}).str.to_lowercase()'),
-    # pandas' (pyarrow's) upper case of "ß" is "ẞ", which Polars keeps; its own is "SS"
-    _port('df["s"].str.upper()',
-          'pl.col("s").str.replace_all("ß", "ẞ", literal=True).str.to_uppercase()'),
-    _port('df["s"].str.title()',
-          'str.replace_many({"Σ": "σ", "ß": "ẞ"})\n    .str.to_titlecase()'),
+    # pandas' (pyarrow's) upper case of "ß" is "ẞ", which Polars keeps; its own is "SS"; the
+    # letters Polars writes as two ("ﬁ" as "FI") are kept (pandas_upper, pandas_title)
+    _port('df["s"].str.upper()', 'out=pandas_upper(pl.col("s"))'),
+    _port('df["s"].str.title()', 'out=pandas_title(pl.col("s"))'),
     _port('df["s"].str.strip()', 'pl.col("s").str.strip_chars()'),
     _port('df["s"].str.strip("x ")', 'pl.col("s").str.strip_chars("x ")'),
     _port('df["s"].str.lstrip()', 'pl.col("s").str.strip_chars_start()'),
@@ -112,7 +111,7 @@ PORTS = [
     _port('df["s"].str.extract("(a)(?P<b>b)", flags=re.I)["b"]', 'str.extract("(?i)(a)(?P<b>b)", 2)'),
     _port('df["s"].str.extract("(a)")', 'out=pl.col("s").str.extract("(a)", 1)'),
     _port('df["s"].str.capitalize()',
-          'pl.col("s").str.head(1).str.replace_all("ß", "ẞ", literal=True).str.to_uppercase()'
+          'pandas_upper(pl.col("s").str.head(1))'
           ' + pl.col("s").str.slice(1).str.replace_many({"İ": "i", "Σ": "σ"}).str.to_lowercase()'),
     _port('df["s"].str.count("p")', 'pl.col("s").str.count_matches("p").cast(pl.Int64)'),
     _port('df["s"].str.count("P", flags=re.I)', 'str.count_matches("(?i)P")'),
@@ -440,10 +439,8 @@ def test_each_call_of_a_chain_is_reported() -> None:
     assert "frame.getitem.column" in found
 
 
-@pytest.mark.xfail(strict=True, raises=AssertionError,
-                   reason="documented caveat (confidence 0.98): pandas keeps ligatures when it "
-                   "upper-cases, Polars writes 'FF'")
-def test_known_difference_ligature_upper() -> None:
+def test_ligature_upper_kept_as_pandas_keeps_it() -> None:
+    # pandas keeps ligatures when it upper-cases; Polars' own upper case writes 'FF'
     differential(HEAD + 'df = pd.DataFrame({"s": ["ß", "ﬀ"]})\n'
                  'df["out"] = df["s"].str.upper()\nresult = df\n')
 
@@ -619,10 +616,8 @@ def test_capitalize_sites_say_why() -> None:
     assert whole.confidence == 0.98 and "longest row" in whole.message
 
 
-@pytest.mark.xfail(strict=True, raises=AssertionError,
-                   reason="documented caveat (confidence 0.98): pandas keeps a ligature first "
-                   "when it capitalizes, Polars writes 'FF'")
-def test_known_difference_capitalize_ligature() -> None:
+def test_capitalize_keeps_a_ligature_first_as_pandas_does() -> None:
+    # pandas keeps a ligature first when it capitalizes; Polars' own upper case writes 'FF'
     differential(HEAD + 'df = pd.DataFrame({"s": ["ßa", "ﬀa"]})\n'
                  'df["out"] = df["s"].str.capitalize()\nresult = df\n')
 
@@ -819,3 +814,50 @@ def test_reductions_of_text_lengths_and_counts_are_pandas_numbers(texts: str) ->
         df["o"] = df["berth"].str.count("o")
         result = [df["n"].max(), df["n"].sum(), df["o"].min(), df["n"].astype(str).tolist()]
         """)
+
+
+# -- lengths of pandas' "string" dtype -----------------------------------------------------
+
+def test_lengths_where_the_script_makes_the_string_dtype_say_so(tmp_path) -> None:
+    """str.len() of an astype("string") column is pandas' nullable Int64 (written 4 beside a
+    missing value), of a "str" column float64 (4.0); porter does not follow which text columns
+    are "string", so the site says so below 0.9, and keeps its full confidence otherwise."""
+    import pandas as pd
+    source = '''
+import pandas as pd
+k = pd.DataFrame({"glaze": ["late", None, "early"]})
+k["glaze"] = k["glaze"].astype(DTYPE)
+k["n"] = k["glaze"].str.len()
+k["c"] = k["glaze"].str.count("a")
+result = k
+'''
+    pandas_side = run(source.replace("DTYPE", '"string"'))["result"]
+    assert str(pandas_side["n"].dtype) == "Int64"  # the difference porter cannot follow
+    made = convert(source.replace("DTYPE", '"string"'))
+    sites = [s for s in made.sites if s.key in ("series.str.len", "series.str.count")]
+    assert len(sites) == 2 and all(s.confidence <= 0.8 and '"string" dtype' in s.message
+                                   for s in sites), [(s.key, s.confidence) for s in sites]
+    plain = differential(source.replace("DTYPE", "str"))
+    assert all(s.confidence > 0.8 and '"string" dtype' not in s.message for s in plain.sites
+               if s.key in ("series.str.len", "series.str.count"))
+
+
+# -- letters whose upper case Polars writes as two or three ---------------------------------
+
+LIGATURES = '''
+import pandas as pd
+df = pd.DataFrame({"s": ["ﬁeld notes", "ﬂax mill", "oﬀ ﬁ", "ŉ ǰ ẖ", "ᾳ ᾀ ᾈ ᾶ ΐ", "և ﬓ",
+                         "straße ﬁß", "plain text", None, "", "ꙮﬁ a\\ua66e"]})
+'''
+
+
+@pytest.mark.parametrize("expr", [
+    pytest.param('df["s"].str.upper()', id="upper"),
+    pytest.param('df["s"].str.title()', id="title"),
+    pytest.param('df["s"].str.capitalize()', id="capitalize"),
+    pytest.param('df["s"].str.upper().str.len()', id="upper then len"),
+])
+def test_ligatures_are_kept_as_pandas_keeps_them(expr: str) -> None:
+    """pandas' kernel (pyarrow) keeps "ﬁ" in upper(), title() and capitalize() ("ﬁELD NOTES");
+    Polars' full case mapping wrote "FIELD NOTES", a letter longer."""
+    differential(LIGATURES + f'df["r"] = {expr}\nresult = df\n')

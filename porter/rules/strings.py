@@ -37,6 +37,44 @@ MISSING_MAKES_FLOAT = "a text value is missing (its count is NaN)"
 LIST_STR = "list[str]"  # porter's dtype of a column of lists of text (str.split, str.findall)
 
 
+# what can make pandas' nullable "string" dtype (not pandas 3's default "str"): its lengths and
+# counts are pandas' nullable Int64, written 4 beside a missing value, where those of "str"
+# are float64 (4.0)
+_STRING_DTYPE_HINTS = re.compile(r"^string(\[(python|pyarrow)\])?$")
+_STRING_DTYPE_NAMES = {"StringDtype", "convert_dtypes", "dtype_backend"}
+
+
+def string_dtype_possible(ctx: RuleContext) -> bool:
+    """Whether the script may hold pandas' "string" dtype somewhere (astype("string"),
+    dtype={"c": "string"}, pd.StringDtype(), convert_dtypes): porter does not follow which
+    text columns are of it."""
+    import ast
+    module = ctx.python_module
+    if module is None:
+        return True
+    found = getattr(module, "_porter_string_dtype", None)
+    if found is None:
+        found = any(
+            isinstance(n, ast.Constant) and isinstance(n.value, str)
+            and _STRING_DTYPE_HINTS.match(n.value)
+            or isinstance(n, ast.Attribute) and n.attr in _STRING_DTYPE_NAMES
+            or isinstance(n, ast.Name) and n.id in _STRING_DTYPE_NAMES
+            or isinstance(n, ast.keyword) and n.arg == "dtype_backend"
+            for n in ast.walk(module))
+        module._porter_string_dtype = found  # read once per script
+    return found
+
+
+def _counts(result: Column, ctx: RuleContext) -> Column:
+    """A count over text (str.len, str.count): float64 in pandas where a value is missing
+    (Column.float_int), except on pandas' "string" dtype, whose counts are its nullable Int64."""
+    if string_dtype_possible(ctx):
+        ctx.lower('the script may make pandas\' "string" dtype: on such a column the count is '
+                  'pandas\' nullable Int64 (written 4 beside a missing value, where <NA> is), and '
+                  'porter writes it as a count of "str" text, float64 there (4.0)', 0.8)
+    return _replace(result, float_int=MISSING_MAKES_FLOAT)
+
+
 def text_column(call: PandasCall, ctx: RuleContext) -> Column:
     """The column under `s.str` for a method of text: on a column of lists (str.split) pandas
     gives a missing value for every row, and the Polars string method fails."""
@@ -272,47 +310,110 @@ def polars_template(repl: str, groups: int, ctx: RuleContext) -> str:
 
 _CASE = {"lower": "to_lowercase", "upper": "to_uppercase", "title": "to_titlecase"}
 
+# Letters whose upper case Polars writes as two or three (Unicode's full case mapping: "ﬁ" is
+# "FI", "ŉ" is "ʼN") and pandas' kernel (pyarrow, one letter at a time) keeps as they are:
+# ligatures, as text copied out of PDFs holds them, and Greek letters with accents or an iota.
+# U+1FD3 is written escaped: it looks as U+0390 (its canonical equivalent) and a tool that
+# normalises text would make it that.
+UPPER_KEPT = "ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗ"
+# Greek small letters with an iota: pandas writes their one capital (ᾳ -> ᾼ), which is Polars'
+# title case of the letter alone; Polars' upper case is two letters (ΑΙ)
+UPPER_IOTA = "ᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ"
+# the letters of UPPER_KEPT that are small: title() keeps them first in a word too (Polars
+# writes "Fi" for "ﬁ"), and lower-cases them inside one as both do
+TITLE_KEPT = "ŉǰΐΰևẖ-ẚὐὒὔὖᾲᾴᾶᾷῂῄῆῇῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷﬀ-ﬆﬓ-ﬗ"
+# a letter without case (Cyrillic's multiocular O) set before each of them for title(): Polars
+# then reads the letter as inside a word and keeps it; taken out again after (written escaped,
+# as few fonts have it)
+TITLE_MARK = r"\ua66e"  # as written in the converted script
+
+
+def _escaped(letters: str) -> str:
+    """`letters` as written between the quotes of the converted script (U+1FD3 escaped)."""
+    return letters.replace("\u1fd3", "\\u1fd3")
+
+
+UPPER_FUNCTION = "pandas_upper"
+UPPER_DEFINITION = f'''\
+def pandas_upper(text):
+    """text.str.to_uppercase() as pandas' str.upper() writes it (pyarrow's kernel, one letter
+    at a time): "ß" is "ẞ" (Polars: "SS"), and a letter Polars writes as two or three ("ﬁ" as
+    "FI", "ŉ", Greek letters with accents or an iota) is kept, or made its one capital, as
+    pandas does: the text is cut around those letters and each piece upper-cased."""
+    kept, iota = "[{_escaped(UPPER_KEPT)}]", "[{UPPER_IOTA}]"
+    text = text.str.replace_all("ß", "ẞ", literal=True)
+    piece = pl.element()
+    by_piece = (
+        text.str.extract_all(f"{{kept}}|{{iota}}|[^{_escaped(UPPER_KEPT)}{UPPER_IOTA}]+")
+        .list.eval(
+            pl.when(piece.str.contains(f"^{{kept}}$")).then(piece)
+            .when(piece.str.contains(f"^{{iota}}$")).then(piece.str.to_titlecase())
+            .otherwise(piece.str.to_uppercase())
+        )
+        .list.join("")
+    )
+    return pl.when(text.str.contains(f"{{kept}}|{{iota}}")).then(by_piece).otherwise(
+        text.str.to_uppercase())
+'''
+
 
 @rule("series.str.lower", "series.str.upper", "series.str.title")
 def case(call: PandasCall, ctx: RuleContext) -> Value:
-    """s.str.lower() / upper() / title() -> str.to_lowercase() / to_uppercase() / to_titlecase().
+    """s.str.lower() / upper() / title() -> str.to_lowercase() / pandas_upper() / pandas_title().
 
-    Handles: "ß" upper-cased to "ẞ", as pandas' kernel does (Polars writes "SS"): it is made
-    "ẞ" first, which Polars keeps; lower() of "İ" is "i" and of a final "Σ" is "σ", as in
-    pandas (Polars writes "i̇" and "ς"): made so first (title() too for the sigma).
-    title() as pandas writes it (_pandas_title): "ß" and a digraph first in a word, "İ" inside
-    one.
-    Caveats: a few letters still differ: ligatures ("ﬀ"), "ŉ" and Greek letters with an iota
-    are kept by pandas and expanded by Polars; title() writes an "i" with a combining dot
-    (i + U+0307) already in the text as "i"; letters added in Unicode 16 lower in pandas only
-    (confidence below 1 in the table).
+    Handles: lower() of "İ" is "i" and of a final "Σ" is "σ", as in pandas (Polars writes "i̇"
+    and "ς"): made so first. upper() (UPPER_DEFINITION): "ß" is "ẞ" (Polars: "SS"), and the
+    letters Polars writes as two or three (ligatures "ﬁ", "ﬂ", "ŉ", Greek letters with accents
+    or an iota) are kept or made their one capital, as pandas' kernel does. title()
+    (TITLE_DEFINITION): "ß" and a digraph first in a word, "İ" inside one, and the ligatures
+    kept first in a word, as pandas writes them.
+    Caveats: title() starts a word after a letter without case (CJK, Hebrew, Arabic, a
+    combining mark) in pandas only, and Georgian letters first in a word are capitals in pandas
+    only; it writes an "i" with a combining dot (i + U+0307) already in the text as "i";
+    letters added in Unicode 16 change case in pandas only (confidence below 1 in the table).
     """
     column = text_column(call, ctx)
     ctx.reject_unknown(call)
     text = _text(column)
     if call.name == "upper":
-        text = _capital_sharp_s(text)
-    elif call.name == "lower":
+        return _string(column, emit.call(UPPER_FUNCTION, _text_expr(column)))
+    if call.name == "lower":
         text = _simple_lower_case(text)
     else:
-        return _string(column, _pandas_title(text))
+        return _string(column, emit.call(TITLE_FUNCTION, _text_expr(column)))
     return _string(column, text.method(_CASE[call.name]))
 
 
+TITLE_FUNCTION = "pandas_title"
 # pandas' title() upper-cases the first letter of a word, Polars' writes its title case: the
-# four letters whose title case is not their upper case (the digraphs "ǅ", "ǈ", "ǋ", "ǲ")
-_TITLE_TO_UPPER = {"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ"}
+# four letters whose title case is not their upper case (the digraphs "ǅ", "ǈ", "ǋ", "ǲ") are
+# made their upper case after it
+TITLE_DEFINITION = f'''\
+def pandas_title(text):
+    """text.str.to_titlecase() as pandas' str.title() writes it (pyarrow's kernel, one letter
+    at a time): "Σ" is "σ" at the end of a word too, "ß" first in a word is "ẞ" (Polars: "Ss"),
+    a digraph first in a word is its upper case ("ǆemal" -> "Ǆemal", Polars: "ǅemal"), "İ"
+    inside a word is "i" (Polars: i and a combining dot), and a letter Polars writes as two or
+    three first in a word ("ﬁ" as "Fi") is kept: a letter without case set before it makes
+    Polars read it as inside a word, and is taken out after."""
+    kept, mark = "[{_escaped(TITLE_KEPT)}]", "{TITLE_MARK}"
+    return (
+        text.str.replace_many({{"Σ": "σ", "ß": "ẞ"}})
+        .str.replace_all(kept, mark + "$0")
+        .str.to_titlecase()
+        .str.replace_many({{"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\\u0307": "i"}})
+        .str.replace_all(mark + f"({{kept}})", "$1")
+    )
+'''
 
 
-def _pandas_title(text: Code) -> Code:
-    """title() as pandas' (pyarrow's) kernel writes it, one letter at a time: "Σ" is "σ" at
-    the end of a word too, "ß" first in a word is "ẞ" (Polars: "Ss"; "ẞ" inside a word is
-    lowered to "ß" by both), a digraph first in a word is its upper case ("ǆemal" -> "Ǆemal",
-    Polars: "ǅemal"; one inside a word is lowered by both), "İ" inside a word is "i" (Polars:
-    "i̇", i and a combining dot, which pandas does not write)."""
-    text = text.method("replace_many", {"Σ": "σ", "ß": "ẞ"}).attr("str").method("to_titlecase")
-    dotted_i = emit.atom(r'"i\u0307"')  # written escaped: a combining dot after a quote hides
-    return text.attr("str").method("replace_many", {**_TITLE_TO_UPPER, dotted_i: "i"})
+def _text_expr(column: Column) -> Code:
+    """The column as a Polars text expression (a category column's values as text)."""
+    if column.dtype in ("category", "enum"):
+        return column.code.method("cast", emit.atom("pl.String"))
+    return column.code
+
+
 
 
 def _simple_lower_case(text: Code) -> Code:
@@ -321,12 +422,6 @@ def _simple_lower_case(text: Code) -> Code:
     letter at a time: "İ" is "i" (Polars: "i̇", two characters) and "Σ" is "σ" at the end
     of a word too (Polars: the final "ς")."""
     return text.method("replace_many", {"İ": "i", "Σ": "σ"}).attr("str")
-
-
-def _capital_sharp_s(text: Code) -> Code:
-    """`text` (a .str namespace) with "ß" written "ẞ": pandas' (pyarrow's) upper case of "ß",
-    which Polars' to_uppercase keeps; Polars' own is "SS"."""
-    return text.method("replace_all", "ß", "ẞ", literal=True).attr("str")
 
 
 _STRIP = {"strip": "strip_chars", "lstrip": "strip_chars_start", "rstrip": "strip_chars_end"}
@@ -368,7 +463,7 @@ def str_len(call: PandasCall, ctx: RuleContext) -> Value:
                          "int")
     else:
         result = _result(column, _text(column).method("len_chars").method("cast", INT64), "int")
-    return _replace(result, float_int=MISSING_MAKES_FLOAT)
+    return _counts(result, ctx)
 
 
 @rule("series.str.zfill")
@@ -656,18 +751,18 @@ def replace(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("series.str.capitalize")
 def capitalize(call: PandasCall, ctx: RuleContext) -> Value:
-    """s.str.capitalize() -> str.head(1).str.to_uppercase() + str.slice(1).str.to_lowercase().
+    """s.str.capitalize() -> pandas_upper(str.head(1)) + str.slice(1).str.to_lowercase().
 
     Handles: the first character upper case and the rest lower case, as pandas' kernel does
     ('ǆ' becomes 'Ǆ', not the title-case 'ǅ' of Python's str.capitalize).
-    'ß' first becomes 'ẞ', as in pandas (Polars' upper case is 'SS'), as for upper().
-    Caveats: letters whose case changes their length differ as for upper() and lower()
-    (ligatures, 'ŉ', a final sigma): 0.98.
+    The first letter as upper() writes it: 'ß' becomes 'ẞ' and a ligature ('ﬁ') is kept, as in
+    pandas (Polars writes 'SS' and 'FI').
+    Caveats: letters added in Unicode 16 change case in pandas only: 0.98.
     """
     column = text_column(call, ctx)
     ctx.reject_unknown(call)
     text = _text(column)
-    first = _capital_sharp_s(text.method("head", 1).attr("str")).method("to_uppercase")
+    first = emit.call(UPPER_FUNCTION, text.method("head", 1))
     rest = _simple_lower_case(text.method("slice", 1).attr("str")).method("to_lowercase")
     return _string(column, emit.binop(first, "+", rest))
 
@@ -708,7 +803,7 @@ def count(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo(f"the pattern {compiled.pattern!r} can match the empty string: each "
                        "engine counts empty matches its own way")
     code = _text(column).method("count_matches", pattern).method("cast", INT64)
-    return _replace(_result(column, code, "int"), float_int=MISSING_MAKES_FLOAT)
+    return _counts(_result(column, code, "int"), ctx)
 
 
 @rule("series.str.findall")

@@ -7,6 +7,7 @@ import libcst as cst
 from porter.analysis.imports import ImportFacts
 from porter.rules.datetimes import GUESS_DEFINITION, GUESS_FUNCTION
 from porter.rules.handover import TEXT_DEFINITION, TEXT_FUNCTION
+from porter.rules.strings import TITLE_DEFINITION, TITLE_FUNCTION, UPPER_DEFINITION, UPPER_FUNCTION
 from porter.rules.selection import DTYPE_PROBE_CONSTANT, DTYPE_PROBE_DEFINITION
 from porter.rules.io_options import (
     CATEGORY_COUNTS_DEFINITION, CATEGORY_COUNTS_FUNCTION,
@@ -107,7 +108,9 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (ROW_FUNCTION, ROW_DEFINITION),
                                  (SORT_FUNCTION, SORT_DEFINITION),
                                  (GUESS_FUNCTION, GUESS_DEFINITION),
-                                 (TEXT_FUNCTION, TEXT_DEFINITION)):
+                                 (TEXT_FUNCTION, TEXT_DEFINITION),
+                                 (UPPER_FUNCTION, UPPER_DEFINITION),
+                                 (TITLE_FUNCTION, TITLE_DEFINITION)):
         if function not in used or _defines(module, function):
             continue
         body = _insert_after_imports(body, _function(definition))

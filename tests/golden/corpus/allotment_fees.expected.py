@@ -13,6 +13,27 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_upper(text):
+    """text.str.to_uppercase() as pandas' str.upper() writes it (pyarrow's kernel, one letter
+    at a time): "ß" is "ẞ" (Polars: "SS"), and a letter Polars writes as two or three ("ﬁ" as
+    "FI", "ŉ", Greek letters with accents or an iota) is kept, or made its one capital, as
+    pandas does: the text is cut around those letters and each piece upper-cased."""
+    kept, iota = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗ]", "[ᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]"
+    text = text.str.replace_all("ß", "ẞ", literal=True)
+    piece = pl.element()
+    by_piece = (
+        text.str.extract_all(f"{kept}|{iota}|[^ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]+")
+        .list.eval(
+            pl.when(piece.str.contains(f"^{kept}$")).then(piece)
+            .when(piece.str.contains(f"^{iota}$")).then(piece.str.to_titlecase())
+            .otherwise(piece.str.to_uppercase())
+        )
+        .list.join("")
+    )
+    return pl.when(text.str.contains(f"{kept}|{iota}")).then(by_piece).otherwise(
+        text.str.to_uppercase())
+
+
 def pandas_to_datetime(text, coerce):
     """pd.to_datetime(text) without format=, as pandas reads it: pandas guesses one
     format from the first value (the first format below whose first pattern reads a
@@ -238,10 +259,7 @@ def load_plots(path):
     plots = pl.scan_csv(path, null_values=PANDAS_NA_VALUES, infer_schema_length=None)
     plots = plots.rename({"water_tap": "tap"}, strict=False)
     plots = plots.with_columns(
-        section=pl.col("section")
-        .str.strip_chars()
-        .str.replace_all("ß", "ẞ", literal=True)
-        .str.to_uppercase(),
+        section=pandas_upper(pl.col("section").str.strip_chars()),
     )
     plots = plots.with_columns(
         tap=pl.col("tap").replace({"yes": "Y", "no": "N"}).fill_null(pl.lit("N")),

@@ -12,6 +12,28 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+
+def pandas_upper(text):
+    """text.str.to_uppercase() as pandas' str.upper() writes it (pyarrow's kernel, one letter
+    at a time): "ß" is "ẞ" (Polars: "SS"), and a letter Polars writes as two or three ("ﬁ" as
+    "FI", "ŉ", Greek letters with accents or an iota) is kept, or made its one capital, as
+    pandas does: the text is cut around those letters and each piece upper-cased."""
+    kept, iota = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗ]", "[ᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]"
+    text = text.str.replace_all("ß", "ẞ", literal=True)
+    piece = pl.element()
+    by_piece = (
+        text.str.extract_all(f"{kept}|{iota}|[^ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]+")
+        .list.eval(
+            pl.when(piece.str.contains(f"^{kept}$")).then(piece)
+            .when(piece.str.contains(f"^{iota}$")).then(piece.str.to_titlecase())
+            .otherwise(piece.str.to_uppercase())
+        )
+        .list.join("")
+    )
+    return pl.when(text.str.contains(f"{kept}|{iota}")).then(by_piece).otherwise(
+        text.str.to_uppercase())
+
+
 # Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
 # writes 0.00005 and 1.5e-7; NaN as an empty field.
 PANDAS_CSV_FLOATS = (
@@ -39,10 +61,7 @@ DYE_COSTS = pl.LazyFrame(
 
 def tidy_codes(batches):
     batches = batches.with_columns(
-        batch_code=pl.col("batch_code")
-        .str.strip_chars()
-        .str.replace_all("ß", "ẞ", literal=True)
-        .str.to_uppercase(),
+        batch_code=pandas_upper(pl.col("batch_code").str.strip_chars()),
     )
     batches = batches.with_columns(prefix=pl.col("batch_code").str.head(3))
     batches = batches.with_columns(

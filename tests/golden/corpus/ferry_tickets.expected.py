@@ -11,6 +11,28 @@ PANDAS_NA_VALUES = [
     "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
 ]
 
+
+def pandas_upper(text):
+    """text.str.to_uppercase() as pandas' str.upper() writes it (pyarrow's kernel, one letter
+    at a time): "ß" is "ẞ" (Polars: "SS"), and a letter Polars writes as two or three ("ﬁ" as
+    "FI", "ŉ", Greek letters with accents or an iota) is kept, or made its one capital, as
+    pandas does: the text is cut around those letters and each piece upper-cased."""
+    kept, iota = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗ]", "[ᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]"
+    text = text.str.replace_all("ß", "ẞ", literal=True)
+    piece = pl.element()
+    by_piece = (
+        text.str.extract_all(f"{kept}|{iota}|[^ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]+")
+        .list.eval(
+            pl.when(piece.str.contains(f"^{kept}$")).then(piece)
+            .when(piece.str.contains(f"^{iota}$")).then(piece.str.to_titlecase())
+            .otherwise(piece.str.to_uppercase())
+        )
+        .list.join("")
+    )
+    return pl.when(text.str.contains(f"{kept}|{iota}")).then(by_piece).otherwise(
+        text.str.to_uppercase())
+
+
 # One row per column that gives pandas the dtype of the whole column: the first value, or a
 # missing value where the column holds one (pandas makes such an int column float64 and a
 # True/False one object); no row when the frame has none.
@@ -115,10 +137,7 @@ tickets = tickets.with_columns(
 )
 
 tickets = tickets.with_columns(
-    route_code=pl.col("route_code")
-    .str.strip_chars()
-    .str.replace_all("ß", "ẞ", literal=True)
-    .str.to_uppercase(),
+    route_code=pandas_upper(pl.col("route_code").str.strip_chars()),
 )
 tickets = tickets.with_columns(
     fare_class=pl.col("fare_class")

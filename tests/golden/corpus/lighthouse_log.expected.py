@@ -14,6 +14,44 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_title(text):
+    """text.str.to_titlecase() as pandas' str.title() writes it (pyarrow's kernel, one letter
+    at a time): "Σ" is "σ" at the end of a word too, "ß" first in a word is "ẞ" (Polars: "Ss"),
+    a digraph first in a word is its upper case ("ǆemal" -> "Ǆemal", Polars: "ǅemal"), "İ"
+    inside a word is "i" (Polars: i and a combining dot), and a letter Polars writes as two or
+    three first in a word ("ﬁ" as "Fi") is kept: a letter without case set before it makes
+    Polars read it as inside a word, and is taken out after."""
+    kept, mark = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾲᾴᾶᾷῂῄῆῇῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷﬀ-ﬆﬓ-ﬗ]", "\ua66e"
+    return (
+        text.str.replace_many({"Σ": "σ", "ß": "ẞ"})
+        .str.replace_all(kept, mark + "$0")
+        .str.to_titlecase()
+        .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"})
+        .str.replace_all(mark + f"({kept})", "$1")
+    )
+
+
+def pandas_upper(text):
+    """text.str.to_uppercase() as pandas' str.upper() writes it (pyarrow's kernel, one letter
+    at a time): "ß" is "ẞ" (Polars: "SS"), and a letter Polars writes as two or three ("ﬁ" as
+    "FI", "ŉ", Greek letters with accents or an iota) is kept, or made its one capital, as
+    pandas does: the text is cut around those letters and each piece upper-cased."""
+    kept, iota = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗ]", "[ᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]"
+    text = text.str.replace_all("ß", "ẞ", literal=True)
+    piece = pl.element()
+    by_piece = (
+        text.str.extract_all(f"{kept}|{iota}|[^ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]+")
+        .list.eval(
+            pl.when(piece.str.contains(f"^{kept}$")).then(piece)
+            .when(piece.str.contains(f"^{iota}$")).then(piece.str.to_titlecase())
+            .otherwise(piece.str.to_uppercase())
+        )
+        .list.join("")
+    )
+    return pl.when(text.str.contains(f"{kept}|{iota}")).then(by_piece).otherwise(
+        text.str.to_uppercase())
+
+
 def pandas_sort_values(frame, by, descending=False, nulls_last=True):
     """The frame sorted by one column (a name or an expression) in the order pandas'
     sort_values gives: pandas sorts numbers, True/False and dates with numpy's quicksort, which
@@ -84,10 +122,7 @@ FOG_NM = 2   # below two nautical miles the horn goes on
 
 def tidy_names(s):
     # keepers type their own names, in any case, sometimes with a leading space
-    return (
-        s.str.strip_chars().str.replace_many({"Σ": "σ", "ß": "ẞ"}).str.to_titlecase().str
-        .replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"})
-    )
+    return pandas_title(s.str.strip_chars())
 
 
 log = pl.scan_csv(
@@ -103,12 +138,7 @@ stations = pl.scan_csv(
 print("raw lines:", log.select(pl.len()).collect().item())
 
 log = log.unique(keep="first", maintain_order=True)
-log = log.with_columns(
-    station=pl.col("station")
-    .str.strip_chars()
-    .str.replace_all("ß", "ẞ", literal=True)
-    .str.to_uppercase(),
-)
+log = log.with_columns(station=pandas_upper(pl.col("station").str.strip_chars()))
 log = log.with_columns(keeper=tidy_names(pl.col('keeper')))
 log = log.with_columns(
     watch_no=pl.col("watch")

@@ -14,6 +14,23 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_title(text):
+    """text.str.to_titlecase() as pandas' str.title() writes it (pyarrow's kernel, one letter
+    at a time): "Σ" is "σ" at the end of a word too, "ß" first in a word is "ẞ" (Polars: "Ss"),
+    a digraph first in a word is its upper case ("ǆemal" -> "Ǆemal", Polars: "ǅemal"), "İ"
+    inside a word is "i" (Polars: i and a combining dot), and a letter Polars writes as two or
+    three first in a word ("ﬁ" as "Fi") is kept: a letter without case set before it makes
+    Polars read it as inside a word, and is taken out after."""
+    kept, mark = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾲᾴᾶᾷῂῄῆῇῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷﬀ-ﬆﬓ-ﬗ]", "\ua66e"
+    return (
+        text.str.replace_many({"Σ": "σ", "ß": "ẞ"})
+        .str.replace_all(kept, mark + "$0")
+        .str.to_titlecase()
+        .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"})
+        .str.replace_all(mark + f"({kept})", "$1")
+    )
+
+
 def pandas_to_datetime(text, coerce):
     """pd.to_datetime(text) without format=, as pandas reads it: pandas guesses one
     format from the first value (the first format below whose first pattern reads a
@@ -237,25 +254,14 @@ HOURLY_RATE = 38   # per hour, agreed with the ferry board in 2023
 
 
 def clean_jobs(jobs):
-    jobs = jobs.with_columns(
-        ferry=pl.col("ferry")
-        .str.strip_chars()
-        .str.replace_many({"Σ": "σ", "ß": "ẞ"})
-        .str.to_titlecase()
-        .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"}),
-    )
+    jobs = jobs.with_columns(ferry=pandas_title(pl.col("ferry").str.strip_chars()))
     jobs = jobs.with_columns(
         status=pl.col('status')
         .str.strip_chars()
         .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase(),
     )
-    jobs = jobs.with_columns(
-        mechanic=pl.col("mechanic")
-        .str.replace_many({"Σ": "σ", "ß": "ẞ"})
-        .str.to_titlecase()
-        .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"}),
-    )
+    jobs = jobs.with_columns(mechanic=pandas_title(pl.col("mechanic")))
     jobs = jobs.with_columns(labour=pl.col("hours") * HOURLY_RATE)
     return jobs.unique("job_id", keep="first", maintain_order=True)
 

@@ -18,6 +18,27 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_upper(text):
+    """text.str.to_uppercase() as pandas' str.upper() writes it (pyarrow's kernel, one letter
+    at a time): "ß" is "ẞ" (Polars: "SS"), and a letter Polars writes as two or three ("ﬁ" as
+    "FI", "ŉ", Greek letters with accents or an iota) is kept, or made its one capital, as
+    pandas does: the text is cut around those letters and each piece upper-cased."""
+    kept, iota = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗ]", "[ᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]"
+    text = text.str.replace_all("ß", "ẞ", literal=True)
+    piece = pl.element()
+    by_piece = (
+        text.str.extract_all(f"{kept}|{iota}|[^ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]+")
+        .list.eval(
+            pl.when(piece.str.contains(f"^{kept}$")).then(piece)
+            .when(piece.str.contains(f"^{iota}$")).then(piece.str.to_titlecase())
+            .otherwise(piece.str.to_uppercase())
+        )
+        .list.join("")
+    )
+    return pl.when(text.str.contains(f"{kept}|{iota}")).then(by_piece).otherwise(
+        text.str.to_uppercase())
+
+
 def pandas_sort_values(frame, by, descending=False, nulls_last=True):
     """The frame sorted by one column (a name or an expression) in the order pandas'
     sort_values gives: pandas sorts numbers, True/False and dates with numpy's quicksort, which
@@ -135,10 +156,7 @@ print("lines read:", counts.select(pl.len()).collect().item())
 #   ~pl.struct(cols).is_first_distinct() for keep='first'
 print("lines entered twice:", counts.collect().to_pandas().duplicated().sum())
 counts = counts.with_columns(
-    transect=pl.col("transect")
-    .str.strip_chars()
-    .str.replace_all("ß", "ẞ", literal=True)
-    .str.to_uppercase(),
+    transect=pandas_upper(pl.col("transect").str.strip_chars()),
 )
 counts = (
     counts
