@@ -53,7 +53,7 @@ def shift(call: PandasCall, ctx: RuleContext) -> Value:
     if call.has("fill_value"):
         kwargs["fill_value"] = ctx.expr(call.arg("fill_value"), column.frame)
     code, dtype = column.code.method("shift", periods, **kwargs), column.dtype
-    if dtype == "int" and periods != 0 and not kwargs:
+    if dtype == "int" and periods != 0 and not kwargs and _plain_int(column, ctx):
         code, dtype = _as_float(code), "float"
     return derived_column(column, code, dtype=dtype)
 
@@ -62,6 +62,19 @@ def _as_float(code: Code) -> Code:
     """An int column a shift or diff gives missing values: float64 in pandas, whatever rows
     are left later (a filter that drops the missing rows keeps it float: 5.0, not 5)."""
     return code.method("cast", emit.atom("pl.Float64"))
+
+
+def _plain_int(column: Column, ctx: RuleContext) -> bool:
+    """Whether an int column is numpy's int64, which a missing value makes float64. pandas'
+    nullable integers (astype("Int64")) stay integers beside <NA> (written 10, not 10.0): the
+    result keeps their type and their mark (Column.nullable_int)."""
+    if column.nullable_int:
+        return False
+    if column.nullable_int is None and ctx.nullable_ints_possible:
+        ctx.lower("the column may be one of pandas' nullable integers (astype(\"Int64\")), "
+                  "which stay integers beside a missing value; porter takes it as int64, made "
+                  "float64 by one (10.0)", 0.9)
+    return True
 
 
 @rule("series.diff")
@@ -82,7 +95,7 @@ def diff(call: PandasCall, ctx: RuleContext) -> Value:
     dtype = "duration" if column.dtype == "datetime" else None if column.dtype == "date" \
         else column.dtype
     code = column.code.method("diff", *args)
-    if dtype == "int":
+    if dtype == "int" and _plain_int(column, ctx):
         code, dtype = _as_float(code), "float"
     return derived_column(column, code, dtype=dtype)
 
@@ -114,10 +127,14 @@ def frame_diff(call: PandasCall, ctx: RuleContext) -> Value:
         if None in kinds:
             ctx.lower("some column types are not known: text fails in both, True/False is a "
                       "logical xor in pandas", 0.9)
+        # numpy's int64 is float64 after it (a missing first row); pandas' nullable integers
+        # stay integers
+        floats = {c for c in data if frame.dtype(c) == "int"
+                  and _plain_int(column_of(frame, c), ctx)}
         code = frame.code.method("with_columns", *(
-            _as_float(emit.col(c).method("diff", *args)) if frame.dtype(c) == "int"
+            _as_float(emit.col(c).method("diff", *args)) if c in floats
             else emit.col(c).method("diff", *args) for c in data))
-        dtypes = tuple((c, "float" if t == "int" and c in data else t) for c, t in frame.dtypes)
+        dtypes = tuple((c, "float" if c in floats else t) for c, t in frame.dtypes)
         return derive(frame, code, same_rows=True, dtypes=dtypes)
     ctx.lower("the columns are not known: text fails in both, True/False is a logical xor in "
               "pandas", 0.9)
@@ -503,7 +520,8 @@ def group_shift(call: PandasCall, ctx: RuleContext) -> Value:
     # pandas writes fill_value on the rows of a missing key too
     dtype = column.dtype if call.name != "diff" or column.dtype not in ("datetime", "date") \
         else "duration" if column.dtype == "datetime" else None
-    if dtype == "int" and (call.name == "diff" or periods != 0 and not kwargs):
+    if dtype == "int" and (call.name == "diff" or periods != 0 and not kwargs) \
+            and _plain_int(column, ctx):
         expr, dtype = _as_float(expr), "float"
     if periods == 0:
         # pandas gives every row its own value (shift) or 0 (diff), a row of a missing key too
@@ -878,7 +896,9 @@ def _last_digits(column: Column, how: str, kind: str, options: dict[str, object]
     exact_numbers = column.dtype in ("int", "bool")
     if how in ("std", "var"):
         ctx.lower("pandas' running variance (values added and removed as the window moves) and "
-                  "Polars' can differ in the last digits", 0.95 if kind == "rolling" else 0.98)
+                  "Polars' can differ in the last digits, and from the 4th significant digit "
+                  "where the values are large beside their spread (epoch milliseconds)",
+                  0.95 if kind == "rolling" else 0.98)
     elif how in ("sum", "mean") and kind == "rolling" and not exact_numbers:
         ctx.lower("pandas' rolling sum is an online sum with a correction term; Polars' can "
                   "differ from it in the last digits when windows hold missing values", 0.98)
@@ -1116,6 +1136,38 @@ NUMPY_ABS = {"abs", "absolute", "fabs"}
 NULL_KEEPING = (cst.Add, cst.Subtract, cst.Multiply, cst.Divide)
 
 
+# the largest window whose std or var porter computes window by window: numpy sums fewer
+# than 8 values one after another (a running sum gives the same bits), longer arrays in 8
+# interleaved partial sums
+SPREAD_WINDOWS = 7
+
+
+def _window_spread(values: Code, how: str, options: dict[str, object], ddof: int) -> Code:
+    """The std or var of each rolling window computed from the window's own values, as pandas'
+    Series.std (nanops.nanvar) and numpy's std compute it for apply: the window's rows
+    gathered into a list, its sum taken value after value (numpy's order, a missing value as
+    0), the mean, then the squares around it summed the same way; missing where fewer than
+    min_periods values (or no more than ddof) are present."""
+    size = int(options["window"])  # type: ignore[call-overload]
+    row = emit.pl("int_range", emit.pl("len"))
+    # the window of row i ends at i (a centred one (size - 1) // 2 rows later), as pandas'
+    # fixed windows do, cut at the first and last rows
+    ahead = (size - 1) // 2 if options.get("center") else 0
+    start = emit.binop(row, "-", size - 1 - ahead).method("clip", 0) if size - 1 - ahead else row
+    end = emit.binop(row, "+", ahead + 1)
+    if ahead:
+        end = end.method("clip", upper_bound=emit.pl("len"))
+    windows = values.method("implode").attr("list").method(
+        "gather", emit.pl("int_ranges", start, end))
+    least = max(int(options["min_periods"]), ddof + 1)  # type: ignore[call-overload]
+    mean = "pl.element().fill_null(0).cum_sum().last() / pl.element().count()"
+    spread = emit.atom(
+        f"pl.when(pl.element().count() >= {least}).then(((pl.element() - ({mean})) ** 2)"
+        f".fill_null(0).cum_sum().last() / (pl.element().count() - {ddof}))")
+    code = windows.attr("list").method("eval", spread).attr("list").method("first")
+    return code.method("sqrt") if how == "std" else code
+
+
 class _WindowReads(cst.CSTTransformer):
     """Replaces each read of the window parameter by a name bound to its column expression."""
 
@@ -1140,6 +1192,17 @@ class _WindowReads(cst.CSTTransformer):
         return cst.Name(name)
 
     def _aggregate(self, how: str, ddof: int) -> cst.Name:
+        if how in ("std", "var"):
+            # pandas computes the function's std of each window on its own (two passes: the
+            # mean, then the squares around it); Polars' running variance, values added and
+            # removed as the window moves, loses digits where the values are large beside
+            # their spread (epoch milliseconds: from the 4th significant digit)
+            if self.kind == "expanding" or int(self.options["window"]) > SPREAD_WINDOWS:  # type: ignore[call-overload]
+                raise Unsupported(f"the {how} of each window: pandas computes it window by "
+                                  f"window, and Polars' running {how} loses digits where the "
+                                  f"values are large beside their spread; porter gathers the "
+                                  f"rows of windows of up to {SPREAD_WINDOWS} rows only")
+            return self._bind(_window_spread(self.values, how, self.options, ddof), True)
         _last_digits(self.column, how, self.kind, self.options, self.ctx)
         if self.kind == "expanding" and how == "median":
             raise Unsupported("a running median (no bounded Polars expression)")
