@@ -309,3 +309,17 @@ def test_parquet_read_then_overwritten(tmp_path: Path) -> None:
         print(p["v"].sum())
         os.remove("a.parquet")  # (the files written are compared as text)
     """, tmp_path, {"d.csv": D})
+
+
+def test_the_read_of_a_file_the_script_wrote_says_why_its_types_are_inferred(tmp_path: Path) -> None:
+    # the site said the file was not under --data, although it is (an older copy)
+    result = same_text("""
+        import pandas as pd
+        j = pd.read_csv("jan.csv")
+        j.to_csv("stage.csv", index=False)
+        back = pd.read_csv("stage.csv")
+        print(back["kg"].sum())
+    """, tmp_path, {"jan.csv": "crate,kg\nc1,5\nc2,6\n", "stage.csv": "crate,kg\nold,1.5\n"})
+    read = [s for s in result.sites if s.key == "pd.read_csv" and s.line == 5]
+    assert read and "writes stage.csv before it reads it" in read[0].message
+    assert "not under the --data folder" not in read[0].message

@@ -322,6 +322,13 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         frame = derive(frame, frame.code.method("with_columns", *exprs), same_rows=True,
                        dtypes=tuple({**dict(frame.dtypes), **{c: "datetime" for c in parse_dates}}.items()))
     if schema is None and ctx.schema_lookup is not None and isinstance(_paths(source), str) \
+            and getattr(ctx.schema_lookup, "written_by_script", lambda path: False)(_paths(source)):
+        # the script writes this file before it reads it: --data may hold an older copy
+        # (translate.writes.FreshSchemas), so its types are not taken
+        ctx.lower(f"the script writes {_paths(source)} before it reads it, so the copy under "
+                  "--data may be an older one: the scan infers the types over the whole file, "
+                  "from what the script wrote", 0.95)
+    elif schema is None and ctx.schema_lookup is not None and isinstance(_paths(source), str) \
             and not is_url(_paths(source)):  # type: ignore[arg-type]
         ctx.lower(f"{_paths(source)} is not under the --data folder (paths are looked up from "
                   "it, as the script reads them from where it runs): the scan infers the types "
