@@ -127,3 +127,38 @@ def test_frame_of_rows_holding_lists(tmp_path: Path) -> None:
         out = pd.DataFrame(rows)
         out.to_csv("out.csv", index=False)
     """, tmp_path, {"f.csv": "route,pax\nNorth,40\nNorth,61\nEast,12\n"})
+
+
+def test_row_labels_set_on_pandas_are_kept(tmp_path: Path) -> None:
+    # pandas writes the labels it was given (k,k,v / a,a,1); a frame coming back to Polars
+    # would lose them
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("d.csv")
+        df.index = df["k"]
+        df.to_csv("o.csv")
+        e = pd.read_csv("d.csv")
+        e.index += 1
+        e["w"] = e["v"] * 2
+        e.to_csv("o2.csv")
+        r = pd.read_csv("d.csv").sort_values("v")
+        r.index = range(1, len(r) + 1)
+        r.index.name = "rank"
+        r.to_csv("o3.csv")
+    """, tmp_path, {"d.csv": "k,v\nb,2\na,1\nc,3\n"})
+
+
+def test_group_unique_and_lists_made_by_pandas_stay_pandas(tmp_path: Path) -> None:
+    # pandas' cells hold arrays (unique()) or lists of numpy values and Timestamps, written as
+    # their text; pl.from_pandas refuses the arrays, Polars' CSV writer the lists
+    same_text("""
+        import pandas as pd
+        f = pd.read_csv("f.csv", parse_dates=["dep"])
+        u = f.groupby("route")["status"].unique().reset_index()
+        u.to_csv("u.csv", index=False)
+        e = f.groupby("route")["pax"].agg(lambda s: sorted(s.unique())).reset_index()
+        e.to_csv("e.csv", index=False)
+        a = f.groupby("route")["dep"].agg(list).reset_index()
+        a.to_csv("a.csv", index=False)
+    """, tmp_path, {"f.csv": "route,status,pax,dep\nEast,,12,2024-05-02\nEast,cancelled,0,"
+                             "2024-05-04\nNorth,ok,40,2024-05-01\n"})

@@ -5,6 +5,7 @@ from __future__ import annotations
 
 import ast
 import builtins
+import re
 import textwrap
 from dataclasses import dataclass, field, replace
 from collections.abc import Callable
@@ -1677,7 +1678,8 @@ class _Walker:
         elif isinstance(value, PandasValue):
             fresh = self.current_small.value if isinstance(self.current_small, cst.Assign) else None
             plain = fresh is not None and _makes_plain_frame(fresh) \
-                and not self.services.categories_possible
+                and not self.services.categories_possible \
+                and not _LIST_CELLS.search(self.services.code_for(fresh))
             # a frame pandas made with labels 0..n-1 comes back to Polars at the next statement
             # porter can rewrite whole
             env[name] = PandasValue(emit.atom(name), frame=Frame(emit.atom(name)) if plain else None)
@@ -2143,6 +2145,8 @@ def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
     for). `what` names an in-place change."""
     if not isinstance(frame, Frame) or frame.index or frame.number_labels:
         return None
+    if _sets_labels(statement, what):
+        return None  # row labels pandas set (df.index = df["k"]): pl.from_pandas drops them
     if isinstance(statement, cst.Assign) and handover.orders_categories(
             statement.value, (dtype_names or {}).get) and handover.text_categories(
             statement.value, (dtype_names or {}).get) is None:
@@ -2197,6 +2201,36 @@ def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
     return Frame(emit.atom(name), columns=columns, dtypes=dtypes,
                  labels_intact=frame.labels_intact,
                  int_labels_except=handover.int_labels_after(frame, key))
+
+
+# pandas code whose frame may hold lists or arrays in its cells (a groupby's unique(), agg(list),
+# a function making lists): pl.from_pandas refuses pandas' arrays, and no Polars writer writes
+# the elements as pandas does (np.int64(0), Timestamp(...)): such a frame stays pandas
+_LIST_CELLS = re.compile(r"\.unique\(\s*\)|\.(agg|aggregate|apply|transform)\(\s*(list|sorted|tuple|set)\s*[,)]"
+                         r"|\.(agg|aggregate|apply)\(\s*lambda[^:]*:.*\b(sorted|list|tuple|set)\("
+                         r"|\.(tolist|to_list|to_numpy)\(\s*\)|\.values\b")
+
+
+# methods that change a frame's row labels in place
+_SETS_LABELS = frozenset({"set_index", "rename_axis", "reindex"})
+
+
+def _sets_labels(statement: cst.CSTNode | None, what: str) -> bool:
+    """Whether a statement kept on pandas gives a frame row labels of its own (`df.index =
+    ...`, `df.index += 1`, `df.index.name = "rank"`, `set_index(..., inplace=True)`), which a
+    frame coming back to Polars would lose."""
+    if what == "index" or what.startswith("index.") or what in _SETS_LABELS:
+        return True
+    targets: list[cst.BaseExpression] = []
+    if isinstance(statement, cst.Assign):
+        targets = [t.target for t in statement.targets]
+    elif isinstance(statement, (cst.AugAssign, cst.AnnAssign)):
+        targets = [statement.target]
+    for target in targets:
+        _, path = _root_and_path(target)
+        if path == "index" or path.startswith("index."):
+            return True
+    return False
 
 
 def _written_names(target: cst.BaseExpression | None) -> tuple[str, ...] | None:
