@@ -162,3 +162,18 @@ def test_group_unique_and_lists_made_by_pandas_stay_pandas(tmp_path: Path) -> No
         a.to_csv("a.csv", index=False)
     """, tmp_path, {"f.csv": "route,status,pax,dep\nEast,,12,2024-05-02\nEast,cancelled,0,"
                              "2024-05-04\nNorth,ok,40,2024-05-01\n"})
+
+
+def test_two_levels_of_column_labels_handed_to_pandas(tmp_path: Path) -> None:
+    # pandas' columns after agg({"v": [...]}) are (column, function) pairs, with or without
+    # the keys in the index: code that joins them reads pairs, not porter's flat names
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("d.csv")
+        b = df.groupby("k", as_index=False).agg({"v": ["min", "max"]})
+        b.columns = ["_".join(c).strip("_") for c in b.columns]
+        b.to_csv("b.csv", index=False)
+        c = df.groupby("k", as_index=False).agg({"v": ["min", "max"]})
+        c[("v", "range")] = c[("v", "max")] - c[("v", "min")]
+        c.to_csv("c.csv", index=False)
+    """, tmp_path, {"d.csv": "k,v\na,1\na,3\nb,2\n"})

@@ -2147,6 +2147,10 @@ def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
         return None
     if _sets_labels(statement, what):
         return None  # row labels pandas set (df.index = df["k"]): pl.from_pandas drops them
+    if frame.column_pairs and not _names_columns(statement):
+        # two levels of column labels in pandas (agg({"v": ["min", "max"]})): pl.from_pandas
+        # would name the columns "('v', 'min')"; they come back once the script names them
+        return None
     if isinstance(statement, cst.Assign) and handover.orders_categories(
             statement.value, (dtype_names or {}).get) and handover.text_categories(
             statement.value, (dtype_names or {}).get) is None:
@@ -2213,6 +2217,13 @@ _LIST_CELLS = re.compile(r"\.unique\(\s*\)|\.(agg|aggregate|apply|transform)\(\s
 
 # methods that change a frame's row labels in place
 _SETS_LABELS = frozenset({"set_index", "rename_axis", "reindex"})
+
+
+def _names_columns(statement: cst.CSTNode | None) -> bool:
+    """Whether a statement kept on pandas gives a frame its columns afresh (`df.columns = ...`)."""
+    if not isinstance(statement, cst.Assign):
+        return False
+    return any(_root_and_path(t.target)[1] == "columns" for t in statement.targets)
 
 
 def _sets_labels(statement: cst.CSTNode | None, what: str) -> bool:

@@ -128,9 +128,9 @@ def to_pandas(value: Value) -> Code:
             # a pivoted table's columns are named after its key (pandas keeps the name through
             # reset_index): stack, melt and print read it
             code = code.method("rename_axis", columns=value.columns_name)
-        if value.column_pairs and value.index:
-            # (not without an index: a frame changed in place on pandas comes back to Polars
-            # with the names porter knows, which two levels would turn into "('kg', 'sum')")
+        if value.column_pairs:
+            # (a frame changed in place on pandas then stays pandas, unless the change names
+            # its columns afresh: engine._after_change)
             code = _two_levels(code, value)
         labels = [c for c in value.number_labels if c not in value.index
                   and (value.columns is None or c in value.columns)]
