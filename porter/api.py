@@ -11,6 +11,7 @@ import traceback
 import libcst as cst
 
 from porter.analysis.consumers import plotting_arguments
+from porter.analysis.frame_lists import frame_lists
 from porter.mapping import MappingTable, load_table
 from porter.emit.fstrings import fits
 from porter.model import ConversionError, FileResult, InternalError, Options, Site, SiteDraft
@@ -74,6 +75,7 @@ def convert_source(text: str, *, path: str | None = None, options: Options | Non
         infinities_possible=bool(INFINITY_HINTS.search(text)),
         categories_possible=bool(CATEGORY_HINTS.search(text)),
         plotted=plotting_arguments(module),
+        frame_lists=frame_lists(module),
     )
     try:
         translation = translate_module(module, services)

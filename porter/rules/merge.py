@@ -17,7 +17,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import PandasCall, RuleContext, Unsupported, nullable_mark
-from porter.translate.values import Column, Frame, Opaque, Scalar, Value
+from porter.translate.values import Column, Frame, FrameList, Opaque, Scalar, Value
 
 HOW = {"inner": "inner", "left": "left", "right": "right", "outer": "full", "cross": "cross"}
 MERGE_PARAMS = ("right", "how", "on", "left_on", "right_on", "left_index", "right_index", "sort",
@@ -756,7 +756,7 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
     if join not in ("outer", "inner"):
         raise ctx.todo(f"join={join!r}")
     ignore_index = bool(call.const("ignore_index", None, False))
-    frames = _listed_frames(call, ctx)
+    frames, listed = _listed_frames(call, ctx)
     index = frames[0].index
     if ignore_index:  # pandas drops the labels; porter's index columns go with them
         frames = [_drop_index(f) for f in frames]
@@ -764,7 +764,8 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
     elif any(f.index != index for f in frames):
         raise ctx.todo("the frames have different indexes: call reset_index() first")
     _check_mixed_types(frames, ctx)
-    code = emit.pl("concat", [f.code for f in frames], how="diagonal_relaxed")
+    code = emit.pl("concat", [f.code for f in frames] if listed is None else listed,
+                   how="diagonal_relaxed")
     columns = _concat_columns(frames, join, bool(call.const("sort", None, False)), ctx)
     union = _union(f.columns or () for f in frames)
     if columns is not None and columns != union:
@@ -784,9 +785,15 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
                  sites=tuple(s for f in frames for s in f.sites))
 
 
-def _listed_frames(call: PandasCall, ctx: RuleContext) -> list[Frame]:
-    """The frames written in the list literal passed to pd.concat."""
+def _listed_frames(call: PandasCall, ctx: RuleContext) -> tuple[list[Frame], Code | None]:
+    """The frames written in the list literal passed to pd.concat; or the frames appended
+    to the list named there, with that name (a list of LazyFrames when the script runs)."""
     node = call.first_node("objs")
+    given = call.args[0] if call.args else call.kwargs.get("objs")
+    if isinstance(given, FrameList):
+        if any(f.index for f in given.members):
+            raise ctx.todo("frames with an index appended to the list: call reset_index() first")
+        return list(given.members), given.code
     if not isinstance(node, (cst.List, cst.Tuple)):
         raise ctx.todo("the frames are not written out as a list, so porter cannot see them")
     frames: list[Frame] = []
@@ -802,7 +809,7 @@ def _listed_frames(call: PandasCall, ctx: RuleContext) -> list[Frame]:
         frames.append(value)
     if not frames:
         raise ctx.todo("an empty list (pandas raises ValueError)")
-    return frames
+    return frames, None
 
 
 def _drop_index(frame: Frame) -> Frame:

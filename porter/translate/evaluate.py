@@ -27,7 +27,8 @@ from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, derived_column, lost_float_ints,
 )
 from porter.translate.values import (
-    MISSING, Accessor, BoundMethod, Column, Frame, Grouped, Indexed, Indexer, Items, Module, Opaque,
+    MISSING, Accessor, BoundMethod, Column, Frame, FrameList, Grouped, Indexed, Indexer, Items,
+    Module, Opaque,
     PandasValue, Parts, Resampled, Scalar, TimeGrouperSpec, Value, fresh_token, is_pandas,
 )
 
@@ -142,6 +143,12 @@ class Services:
     # arguments of calls into a plotting library (matplotlib, seaborn), by node id, with the
     # function called: a pandas value given there is handed over on purpose
     plotted: dict[int, tuple[str, bool]] = field(default_factory=dict)
+    # lists the script fills with frames by append for pd.concat (analysis.frame_lists), those
+    # found to take something else (kept over all passes: it only grows), and the frames
+    # appended to each
+    frame_lists: frozenset[str] = frozenset()
+    frame_lists_refused: set[str] = field(default_factory=set)
+    frame_list_members: dict[str, list[Frame]] = field(default_factory=dict)
 
 
 class Evaluator:
@@ -178,6 +185,10 @@ class Evaluator:
 
     # -- names, literals ----------------------------------------------------------------------
     def _eval_Name(self, node: cst.Name) -> Value:
+        members = self.services.frame_list_members.get(node.value)
+        if members and node.value in self.services.frame_lists \
+                and node.value not in self.services.frame_lists_refused:
+            return FrameList(emit.atom(node.value), members=tuple(members))
         if node.value in self.env:
             value = self.env[node.value]
             if isinstance(value, Parts) and value.binding is not None:
@@ -190,6 +201,30 @@ class Evaluator:
         if node.value in _TYPE_NAMES:
             return self.opaque(node, _TYPE_NAMES[node.value])
         return self.opaque(node)
+
+    def append_frame(self, node: cst.Call) -> Value | None:
+        """`pieces.append(frame)` onto a list stacked by pd.concat (analysis.frame_lists): the
+        LazyFrame goes into the list as it is, where it would have gone to pandas."""
+        func = node.func
+        if not (isinstance(func, cst.Attribute) and isinstance(func.value, cst.Name)
+                and func.value.value in self.services.frame_lists and func.attr.value == "append"
+                and len(node.args) == 1):
+            return None
+        name = func.value.value
+        if name in self.services.frame_lists_refused:
+            return None
+        given = node.args[0].value
+        value = self.eval(given)
+        if not isinstance(value, Frame) or value.index \
+                or isinstance(given, cst.Name) and given.value in self.services.changed_in_place:
+            # something else than a frame porter tracks, or a frame the script changes in
+            # place later (pandas' list holds that same object, which sees the change)
+            self.services.frame_lists_refused.add(name)
+            return None
+        members = self.services.frame_list_members.setdefault(name, [])
+        if all(m.code.text != value.code.text for m in members):  # each pass appends again
+            members.append(value)
+        return Opaque(emit.atom(name).method("append", value.code), sites=value.sites)
 
     def live_grouping(self, grouped: Grouped) -> Value:
         """A groupby kept in a name whose frame was changed in place since: the frame as the
@@ -531,6 +566,9 @@ class Evaluator:
 
     # -- calls ----------------------------------------------------------------------------------
     def _eval_Call(self, node: cst.Call) -> Value:
+        appended = self.append_frame(node)
+        if appended is not None:
+            return appended
         if isinstance(node.func, cst.Attribute) and node.func.attr.value in _TIMESTAMP_NAMES \
                 and not node.args:
             receiver = self.eval(node.func.value)

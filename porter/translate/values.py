@@ -264,6 +264,15 @@ class Items(Value):
 
 
 @dataclass(frozen=True)
+class FrameList(Value):
+    """A list the script fills with frames by `append` for pd.concat (analysis.frame_lists):
+    a Python list of LazyFrames at run time. `members` are the frames appended to it, as
+    porter knows them (their columns and types)."""
+
+    members: tuple["Frame", ...] = field(kw_only=True)
+
+
+@dataclass(frozen=True)
 class BoundMethod(Value):
     """`receiver.name` waiting to be called."""
 
