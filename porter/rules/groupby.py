@@ -682,6 +682,35 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
     return scalar_of(column, expr, "int" if whole else None, numpy=column.dtype is None)
 
 
+# numpy's reductions given a Series call the Series' own method (numpy passes ddof=0 to std
+# and var); np.median is not one of them: numpy reads the values, and a missing one makes NaN
+NUMPY_REDUCTIONS = {
+    "np.sum": "sum", "np.nansum": "sum", "np.mean": "mean", "np.nanmean": "mean",
+    "np.max": "max", "np.amax": "max", "np.nanmax": "max", "np.min": "min", "np.amin": "min",
+    "np.nanmin": "min", "np.std": "std", "np.var": "var",
+}
+
+
+@rule(*NUMPY_REDUCTIONS)
+def numpy_reduction(call: PandasCall, ctx: RuleContext) -> Value:
+    """np.sum(s) / np.mean(s) / np.max(s) / np.std(s) … -> the Series' own reduction.
+
+    Handles: numpy hands a Series to the Series' own method, so missing values are skipped as
+    s.sum() skips them; np.std and np.var with ddof=0, as numpy passes it; the nan* forms give
+    the same values (a sum of no values is 0, a mean NaN).
+    Caveats: axis=, dtype=, out= or ddof= given to numpy are TODOs.
+    """
+    if len(call.args) != 1 or call.kwargs:
+        raise Unsupported("numpy's axis=, dtype=, out= or ddof= with a Series")
+    column = call.args[0]
+    if not isinstance(column, Column):
+        raise Unsupported("numpy's reduction of something other than one column")
+    how = NUMPY_REDUCTIONS[ctx.key]
+    kwargs: dict[str, Value] = {"ddof": Opaque(emit.lit(0), const=0)} \
+        if how in ("std", "var") else {}
+    return series_reduce(replace(call, receiver=column, name=how, args=(), kwargs=kwargs), ctx)
+
+
 NAN_WHEN_EMPTY = ("mean", "median", "min", "max", "std", "var", "quantile")
 
 
