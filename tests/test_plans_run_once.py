@@ -188,3 +188,14 @@ def test_a_frame_handed_to_pandas_before_a_loop_is_collected_once(tmp_path) -> N
         print(df["s"].sum())
         ''')).converted_text
     assert 'df = df.with_columns(k=pl.col("k").str.strip_chars()).collect().lazy()' in text, text
+
+
+def test_two_results_of_one_frame_in_one_statement_are_two_executions():
+    # print(a.mean(), a.max()) runs the plan once for each value: the frame is collected once
+    text = _converted('''
+        import pandas as pd
+        df = pd.read_csv("log.csv")
+        print(df["n"].mean(), df["n"].max())
+        ''')
+    read = text[text.index("df ="):text.index("print(")]
+    assert ".collect()" in read, text

@@ -849,17 +849,19 @@ class _Walker:
         except SyntaxError:
             return
         counted = _row_counts(tree)
-        for node in ast.walk(tree):
-            value = _plan_of(env.get(node.id)) if isinstance(node, ast.Name) else None
-            if isinstance(value, Frame) and value.binding is not None:
-                if node.id in counted and value.rows in self.services.file_rows:
+        for execution, names in enumerate(_executions(tree)):
+            for name in names:
+                value = _plan_of(env.get(name))
+                if not isinstance(value, Frame) or value.binding is None:
+                    continue
+                if name in counted and value.rows in self.services.file_rows:
                     # only the rows of a file are counted: Polars counts them from the scan
                     # without reading the columns, cheaper than keeping the frame
                     continue
                 uses = self.services.consumers.setdefault(value.binding, set())
-                uses.add((statement, 0))
+                uses.add((statement, 2 * execution))
                 if self.loop_depth:  # runs once per iteration
-                    uses.add((statement, 1))
+                    uses.add((statement, 2 * execution + 1))
 
     def computed_once(self) -> bool:
         """A frame whose plan would run more than once is collected once where it is made."""
@@ -2073,6 +2075,27 @@ def _after_loop(env: dict[str, Value], handed: dict[str, Frame]) -> dict[str, Va
 def _plan_of(value: Value | None) -> Value | None:
     """The frame whose plan a named value runs: a pending groupby runs its frame's."""
     return value.frame if isinstance(value, Grouped) else value
+
+
+def _executions(tree: ast.AST) -> list[set[str]]:
+    """The names each execution in this code reads: each `.collect()` and each sink runs its
+    plan (`print(a.select(x).collect(), a.select(y).collect())` runs `a` twice), apart from
+    plans collected inside it (those ran once, where they are). Writes batched into one
+    pl.collect_all are one execution: Polars computes what they share once."""
+    calls = [node for node in ast.walk(tree) if isinstance(node, ast.Call)
+             and isinstance(node.func, ast.Attribute)
+             and (node.func.attr == "collect" or node.func.attr.startswith("sink_"))]
+    if not calls or any(isinstance(node, ast.Call) and ast.unparse(node.func) == "pl.collect_all"
+                        for node in ast.walk(tree)):
+        return [{node.id for node in ast.walk(tree) if isinstance(node, ast.Name)}]
+    executions = []
+    for call in calls:
+        receiver = call.func.value  # type: ignore[attr-defined]
+        inner = {id(n) for c in ast.walk(receiver) if c in calls and c is not call
+                 for n in ast.walk(c.func.value)}  # type: ignore[attr-defined]
+        executions.append({n.id for n in ast.walk(receiver)
+                           if isinstance(n, ast.Name) and id(n) not in inner})
+    return executions
 
 
 def _row_counts(tree: ast.AST) -> set[str]:

@@ -13,6 +13,6 @@ for column in ["fee", "deposit"]:
 if VERBOSE:
     print(plots.collect_schema().names())
 else:
-    plots = plots.head(10)
+    plots = plots.head(10).collect().lazy()
 total = plots.select(pl.col("fee").sum()).collect().to_series().to_numpy()[0] + plots.select(pl.col("deposit").sum()).collect().to_series().to_numpy()[0]
 print(f"total due: {total:.2f}")

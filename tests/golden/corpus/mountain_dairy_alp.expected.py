@@ -192,7 +192,7 @@ per_herder = per_herder.sort(
     )
     .sink_csv("herder_wages.csv")
 )
-no_wage = milk.filter(pl.col("wage_per_litre").is_null())
+no_wage = milk.filter(pl.col("wage_per_litre").is_null()).collect().lazy()
 print(
     f"{no_wage.select(pl.len()).collect().item()} lines by herders not on the wage list:",
     sorted(
