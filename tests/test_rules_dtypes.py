@@ -67,3 +67,15 @@ def test_probe_on_tricky_frames() -> None:
         result = [str(df.dtypes), str(df[df["n"] > 5].dtypes), str(df["n"].dtype),
                   str(df[df["n"] > 1]["s"].dtype)]
     """)
+
+
+@pytest.mark.parametrize("make", [
+    # an Int64 column that a statement kept on pandas hands back without its mark
+    'df["n"] = df["plot"].fillna(0).astype("Int64")\ndf["c"] = pd.Categorical(df["crop"])',
+    'df["crop"] = df["crop"].astype("string")',
+    'df = df.convert_dtypes()',
+])
+def test_pandas_nullable_types_are_named_as_pandas_names_them(make: str, tmp_path) -> None:
+    source = (f'import pandas as pd\ndf = pd.read_csv("plots.csv")\n{make}\n'
+              'print(df.dtypes)\nprint(df["crop"].dtype)\n')
+    same_text(source, tmp_path, {"plots.csv": CSV})

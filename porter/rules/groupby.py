@@ -711,6 +711,30 @@ def numpy_reduction(call: PandasCall, ctx: RuleContext) -> Value:
     return series_reduce(replace(call, receiver=column, name=how, args=(), kwargs=kwargs), ctx)
 
 
+@rule("series.mode")
+def series_mode(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.mode() -> the most frequent values, sorted, as a column of a frame of their own.
+
+    Handles: missing values are not counted (dropna=True); every value tied for most frequent,
+    in sorted order and labelled 0..k-1, as pandas gives them; no values give an empty Series.
+    Caveats: dropna=False, and columns whose type porter does not know (or integers pandas
+    holds as floats, or as its nullable integers), are TODOs.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "dropna", positional=1)
+    if call.const("dropna", 0, True) is not True:
+        raise Unsupported("dropna=False counts the missing values as one more value")
+    if column.dtype not in ("int", "float", "str", "bool", "datetime", "date") \
+            or column.float_int is not None or column.nullable_int is not None:
+        raise Unsupported("the mode of a column whose type pandas may hold otherwise")
+    name = column.name if column.name is not None else "mode"
+    expr = column.code.method("drop_nulls").method("mode").method("sort").method("alias", name)
+    frame = Frame(column.frame.code.method("select", expr), columns=(name,),
+                  dtypes=((name, column.dtype),), sites=column.sites)
+    return replace(column_of(frame, name), name=column.name)
+
+
 NAN_WHEN_EMPTY = ("mean", "median", "min", "max", "std", "var", "quantile")
 
 

@@ -4,6 +4,7 @@ query, and what a frame knows about itself (columns, shape, dtypes, len)."""
 from __future__ import annotations
 
 import ast
+import functools
 import re
 from dataclasses import dataclass, field, replace
 
@@ -13,7 +14,8 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import (
-    PandasCall, RuleContext, Unsupported, column_names, column_of, derive, select_columns,
+    PandasCall, RuleContext, Unsupported, column_names, column_of, derive, nullable_columns,
+    select_columns,
 )
 from porter.translate.handover import series_frame, to_pandas
 from porter.translate.values import (
@@ -507,8 +509,40 @@ def dtypes(call: PandasCall, ctx: RuleContext) -> Value:
     to_pandas() gives (float64 for ints with a missing value, object for True/False ones).
     """
     frame = frame_of(call)
+    _check_dtype_names(ctx)
+    if ctx.nullable_ints_possible:
+        marks = nullable_columns(frame)
+        if marks is None or marks[1]:
+            raise Unsupported("porter does not know which integer columns pandas holds as its "
+                              "nullable Int64 here (named Int64, not int64 or float64)")
     probe = replace(frame, code=frame.code.method("select", emit.atom(DTYPE_PROBE_CONSTANT)))
     return PandasValue(to_pandas(probe).attr("dtypes"))
+
+
+# pandas' own nullable types, which Polars has no separate type for: a script that names them
+# may hold columns pandas calls "string", "boolean" or "Float64", where porter's probe says
+# str, bool (or object) and float64
+_NULLABLE_NAMES = frozenset({"string", "boolean", "Float32", "Float64", "string[python]",
+                             "string[pyarrow]", "StringDtype", "BooleanDtype", "Float32Dtype",
+                             "Float64Dtype", "ArrowDtype", "convert_dtypes", "dtype_backend"})
+
+
+def _check_dtype_names(ctx: RuleContext) -> None:
+    module = ctx.python_module
+    if module is None or _names_nullable_types(module):
+        raise Unsupported("the script may make pandas' nullable string, boolean or float "
+                          "columns, whose dtype names porter does not follow")
+
+
+@functools.lru_cache(maxsize=16)
+def _names_nullable_types(module: ast.Module) -> bool:
+    for node in ast.walk(module):
+        if isinstance(node, ast.Constant) and node.value in _NULLABLE_NAMES \
+                or isinstance(node, ast.Attribute) and node.attr in _NULLABLE_NAMES \
+                or isinstance(node, ast.Name) and node.id in _NULLABLE_NAMES \
+                or isinstance(node, ast.keyword) and node.arg in _NULLABLE_NAMES:
+            return True
+    return False
 
 
 @rule("series.dtype")
@@ -518,6 +552,10 @@ def dtype(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: as df.dtypes (one row that holds a missing value where the column does)."""
     column = call.receiver
     assert isinstance(column, Column)
+    _check_dtype_names(ctx)
+    if ctx.nullable_ints_possible and column.nullable_int is None and column.dtype in ("int", None):
+        raise Unsupported("porter does not know whether pandas holds this integer column as its "
+                          "nullable Int64 (named Int64, not int64 or float64)")
     if column.frame.index or getattr(column, "pandas", None) is not None:
         return PandasValue(to_pandas(column).attr("dtype"))  # the labels go over too
     name = column.name if column.name is not None else "0"
