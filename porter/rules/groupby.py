@@ -18,10 +18,13 @@ from porter.rules.io_options import (
     CATEGORY_COUNTS_FUNCTION, DIVIDE_FUNCTION, QUANTILE_FUNCTION, UNSTACKED_FUNCTION,
 )
 from porter.translate.context import (
-    PandasCall, RuleContext, Unsupported, check_same_rows, column_names, derive, grouping_code,
+    PandasCall, RuleContext, Unsupported, check_same_rows, column_names, column_of, derive,
+    grouping_code,
 )
 from porter.translate import handover
-from porter.translate.values import Column, Frame, Grouped, Module, Opaque, Scalar, Value, fresh_token
+from porter.translate.values import (
+    NOT_NULLABLE, Column, Frame, Grouped, Module, Opaque, Scalar, Value, fresh_token,
+)
 
 AGGREGATIONS = ("sum", "mean", "median", "min", "max", "std", "var", "count", "nunique",
                 "first", "last", "size", "any", "all")
@@ -725,9 +728,13 @@ def series_mode(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.reject_unknown(call, "dropna", positional=1)
     if call.const("dropna", 0, True) is not True:
         raise Unsupported("dropna=False counts the missing values as one more value")
-    if column.dtype not in ("int", "float", "str", "bool", "datetime", "date") \
-            or column.float_int is not None or column.nullable_int is not None:
-        raise Unsupported("the mode of a column whose type pandas may hold otherwise")
+    if column.dtype not in ("int", "float", "str", "bool", "datetime", "date"):
+        raise Unsupported("the mode of a column whose type porter does not know")
+    if column.dtype == "int" and (column.float_int is not None
+                                  or ctx.nullable_ints_possible
+                                  and column.nullable_int != NOT_NULLABLE):
+        raise Unsupported("the mode of integers pandas may hold as float64 or as its nullable "
+                          "Int64 here")
     name = column.name if column.name is not None else "mode"
     expr = column.code.method("drop_nulls").method("mode").method("sort").method("alias", name)
     frame = Frame(column.frame.code.method("select", expr), columns=(name,),

@@ -606,10 +606,19 @@ def empty(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("series.getitem")
 def series_getitem(call: PandasCall, ctx: RuleContext) -> Value:
-    """s[mask] -> the column of frame.filter(mask)."""
+    """s[mask] -> the column of frame.filter(mask); s[0] of labels 0..n-1 -> its value.
+
+    Handles: a whole number written in the script, on a Series whose row labels are still
+    pandas' 0..n-1 (s.mode()[0], a column of a frame read or made, not filtered or sorted):
+    the label is the position, as s.iloc[i] takes it.
+    """
     column = call.receiver
     assert isinstance(column, Column)
     key = call.args[0]
+    if isinstance(key, Opaque) and type(key.const) is int and key.const >= 0 \
+            and column.frame.labels_intact and not column.frame.index:
+        from porter.rules.materialize import series_position
+        return series_position(call, ctx)
     if not isinstance(key, Column):
         raise Unsupported("a Series indexed by label or position")
     frame = column.frame
