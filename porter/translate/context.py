@@ -202,7 +202,9 @@ def expr_in(value: Value, frame: Frame) -> Code:
         if value.pytype == "text":
             # pandas' text value, nan where it is missing (materialize.series_position):
             # Polars compares no text with a float, and missing is null in its expressions
-            return emit.atom(f"pl.lit(next(None if v != v else v for v in [{value.code.text}]), "
+            # (the generator in brackets of its own: laid out over lines, the call's only
+            # argument gets a trailing comma, which a bare generator does not allow)
+            return emit.atom(f"pl.lit(next((None if v != v else v for v in [{value.code.text}])), "
                              "dtype=pl.String)")
         return value.code
     if isinstance(value, Opaque):
