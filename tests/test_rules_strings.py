@@ -861,13 +861,3 @@ def test_ligatures_are_kept_as_pandas_keeps_them(expr: str) -> None:
     """pandas' kernel (pyarrow) keeps "ﬁ" in upper(), title() and capitalize() ("ﬁELD NOTES");
     Polars' full case mapping wrote "FIELD NOTES", a letter longer."""
     differential(LIGATURES + f'df["r"] = {expr}\nresult = df\n')
-
-
-@pytest.mark.parametrize("method", ["upper", "title", "capitalize"])
-def test_case_follows_pandas_kernel_on_letters_without_case_and_ligatures(method: str) -> None:
-    # pandas runs pyarrow's kernel: a word starts after a letter without case, ligatures stay
-    differential(f"""
-import pandas as pd
-df = pd.DataFrame({{"s": ["日本a", "ﬁsh ﬂow", "straße", "ǆemal", "ᾳ and ŉ", "עבa", None, "ĳs"]}})
-result = df["s"].str.{method}().tolist()
-""")

@@ -310,19 +310,50 @@ def polars_template(repl: str, groups: int, ctx: RuleContext) -> str:
 
 _CASE = {"lower": "to_lowercase", "upper": "to_uppercase", "title": "to_titlecase"}
 
+# Letters whose upper case Polars writes as two or three (Unicode's full case mapping: "ﬁ" is
+# "FI", "ŉ" is "ʼN") and pandas' kernel (pyarrow, one letter at a time) keeps as they are:
+# ligatures, as text copied out of PDFs holds them, and Greek letters with accents or an iota.
+# U+1FD3 is written escaped: it looks as U+0390 (its canonical equivalent) and a tool that
+# normalises text would make it that.
+UPPER_KEPT = "ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗ"
+# Greek small letters with an iota: pandas writes their one capital (ᾳ -> ᾼ), which is Polars'
+# title case of the letter alone; Polars' upper case is two letters (ΑΙ)
+UPPER_IOTA = "ᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ"
+# the letters of UPPER_KEPT that are small: title() keeps them first in a word too (Polars
+# writes "Fi" for "ﬁ"), and lower-cases them inside one as both do
+TITLE_KEPT = "ŉǰΐΰևẖ-ẚὐὒὔὖᾲᾴᾶᾷῂῄῆῇῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷﬀ-ﬆﬓ-ﬗ"
+# a letter without case (Cyrillic's multiocular O) set before each of them for title(): Polars
+# then reads the letter as inside a word and keeps it; taken out again after (written escaped,
+# as few fonts have it)
+TITLE_MARK = r"\ua66e"  # as written in the converted script
+
+
+def _escaped(letters: str) -> str:
+    """`letters` as written between the quotes of the converted script (U+1FD3 escaped)."""
+    return letters.replace("\u1fd3", "\\u1fd3")
+
+
 UPPER_FUNCTION = "pandas_upper"
-UPPER_DEFINITION = '''\
+UPPER_DEFINITION = f'''\
 def pandas_upper(text):
-    """text in upper case as pandas' str.upper() writes it. pandas runs pyarrow's kernel, one
-    letter at a time ("ß" is "ẞ", "ﬁ" stays "ﬁ"), where Polars' to_uppercase follows Unicode's
-    full rules ("SS", "FI"): the same kernel runs here, on each batch of the column. Without
-    pyarrow pandas runs Python's str.upper, whose rules are Polars' own."""
-    try:
-        import pyarrow.compute as pc
-    except ImportError:
-        return text.str.to_uppercase()
-    return text.map_batches(lambda s: pl.from_arrow(pc.utf8_upper(s.to_arrow())),
-                            return_dtype=pl.String, is_elementwise=True)
+    """text.str.to_uppercase() as pandas' str.upper() writes it (pyarrow's kernel, one letter
+    at a time): "ß" is "ẞ" (Polars: "SS"), and a letter Polars writes as two or three ("ﬁ" as
+    "FI", "ŉ", Greek letters with accents or an iota) is kept, or made its one capital, as
+    pandas does: the text is cut around those letters and each piece upper-cased."""
+    kept, iota = "[{_escaped(UPPER_KEPT)}]", "[{UPPER_IOTA}]"
+    text = text.str.replace_all("ß", "ẞ", literal=True)
+    piece = pl.element()
+    by_piece = (
+        text.str.extract_all(f"{{kept}}|{{iota}}|[^{_escaped(UPPER_KEPT)}{UPPER_IOTA}]+")
+        .list.eval(
+            pl.when(piece.str.contains(f"^{{kept}}$")).then(piece)
+            .when(piece.str.contains(f"^{{iota}}$")).then(piece.str.to_titlecase())
+            .otherwise(piece.str.to_uppercase())
+        )
+        .list.join("")
+    )
+    return pl.when(text.str.contains(f"{{kept}}|{{iota}}")).then(by_piece).otherwise(
+        text.str.to_uppercase())
 '''
 
 
@@ -331,10 +362,15 @@ def case(call: PandasCall, ctx: RuleContext) -> Value:
     """s.str.lower() / upper() / title() -> str.to_lowercase() / pandas_upper() / pandas_title().
 
     Handles: lower() of "İ" is "i" and of a final "Σ" is "σ", as in pandas (Polars writes "i̇"
-    and "ς"): made so first. upper() and title() run the kernel pandas runs, pyarrow's, on the
-    column's batches (UPPER_DEFINITION, TITLE_DEFINITION): "ß" is "ẞ", ligatures ("ﬁ") are
-    kept, title() starts a word after any letter without case, as pandas writes them; without
-    pyarrow they fall back to Polars' own, whose rules are Python's, as pandas' are then.
+    and "ς"): made so first. upper() (UPPER_DEFINITION): "ß" is "ẞ" (Polars: "SS"), and the
+    letters Polars writes as two or three (ligatures "ﬁ", "ﬂ", "ŉ", Greek letters with accents
+    or an iota) are kept or made their one capital, as pandas' kernel does. title()
+    (TITLE_DEFINITION): "ß" and a digraph first in a word, "İ" inside one, and the ligatures
+    kept first in a word, as pandas writes them.
+    Caveats: title() starts a word after a letter without case (CJK, Hebrew, Arabic, a
+    combining mark) in pandas only, and Georgian letters first in a word are capitals in pandas
+    only; it writes an "i" with a combining dot (i + U+0307) already in the text as "i";
+    letters added in Unicode 16 change case in pandas only (confidence below 1 in the table).
     """
     column = text_column(call, ctx)
     ctx.reject_unknown(call)
@@ -349,19 +385,25 @@ def case(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 TITLE_FUNCTION = "pandas_title"
-TITLE_DEFINITION = '''\
+# pandas' title() upper-cases the first letter of a word, Polars' writes its title case: the
+# four letters whose title case is not their upper case (the digraphs "ǅ", "ǈ", "ǋ", "ǲ") are
+# made their upper case after it
+TITLE_DEFINITION = f'''\
 def pandas_title(text):
-    """text in title case as pandas' str.title() writes it. pandas runs pyarrow's kernel, one
-    letter at a time: a word starts after any letter without case, "ß" first in a word is "ẞ",
-    a digraph first in a word is its upper case ("ǆemal" -> "Ǆemal"), "ﬁ" stays "ﬁ"; Polars'
-    to_titlecase follows other rules. The same kernel runs here, on each batch of the column.
-    Without pyarrow pandas runs Python's str.title, whose rules are Polars' own."""
-    try:
-        import pyarrow.compute as pc
-    except ImportError:
-        return text.str.to_titlecase()
-    return text.map_batches(lambda s: pl.from_arrow(pc.utf8_title(s.to_arrow())),
-                            return_dtype=pl.String, is_elementwise=True)
+    """text.str.to_titlecase() as pandas' str.title() writes it (pyarrow's kernel, one letter
+    at a time): "Σ" is "σ" at the end of a word too, "ß" first in a word is "ẞ" (Polars: "Ss"),
+    a digraph first in a word is its upper case ("ǆemal" -> "Ǆemal", Polars: "ǅemal"), "İ"
+    inside a word is "i" (Polars: i and a combining dot), and a letter Polars writes as two or
+    three first in a word ("ﬁ" as "Fi") is kept: a letter without case set before it makes
+    Polars read it as inside a word, and is taken out after."""
+    kept, mark = "[{_escaped(TITLE_KEPT)}]", "{TITLE_MARK}"
+    return (
+        text.str.replace_many({{"Σ": "σ", "ß": "ẞ"}})
+        .str.replace_all(kept, mark + "$0")
+        .str.to_titlecase()
+        .str.replace_many({{"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\\u0307": "i"}})
+        .str.replace_all(mark + f"({{kept}})", "$1")
+    )
 '''
 
 

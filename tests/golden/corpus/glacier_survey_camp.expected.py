@@ -15,30 +15,41 @@ PANDAS_NA_VALUES = [
 
 
 def pandas_title(text):
-    """text in title case as pandas' str.title() writes it. pandas runs pyarrow's kernel, one
-    letter at a time: a word starts after any letter without case, "ß" first in a word is "ẞ",
-    a digraph first in a word is its upper case ("ǆemal" -> "Ǆemal"), "ﬁ" stays "ﬁ"; Polars'
-    to_titlecase follows other rules. The same kernel runs here, on each batch of the column.
-    Without pyarrow pandas runs Python's str.title, whose rules are Polars' own."""
-    try:
-        import pyarrow.compute as pc
-    except ImportError:
-        return text.str.to_titlecase()
-    return text.map_batches(lambda s: pl.from_arrow(pc.utf8_title(s.to_arrow())),
-                            return_dtype=pl.String, is_elementwise=True)
+    """text.str.to_titlecase() as pandas' str.title() writes it (pyarrow's kernel, one letter
+    at a time): "Σ" is "σ" at the end of a word too, "ß" first in a word is "ẞ" (Polars: "Ss"),
+    a digraph first in a word is its upper case ("ǆemal" -> "Ǆemal", Polars: "ǅemal"), "İ"
+    inside a word is "i" (Polars: i and a combining dot), and a letter Polars writes as two or
+    three first in a word ("ﬁ" as "Fi") is kept: a letter without case set before it makes
+    Polars read it as inside a word, and is taken out after."""
+    kept, mark = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾲᾴᾶᾷῂῄῆῇῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷﬀ-ﬆﬓ-ﬗ]", "\ua66e"
+    return (
+        text.str.replace_many({"Σ": "σ", "ß": "ẞ"})
+        .str.replace_all(kept, mark + "$0")
+        .str.to_titlecase()
+        .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"})
+        .str.replace_all(mark + f"({kept})", "$1")
+    )
 
 
 def pandas_upper(text):
-    """text in upper case as pandas' str.upper() writes it. pandas runs pyarrow's kernel, one
-    letter at a time ("ß" is "ẞ", "ﬁ" stays "ﬁ"), where Polars' to_uppercase follows Unicode's
-    full rules ("SS", "FI"): the same kernel runs here, on each batch of the column. Without
-    pyarrow pandas runs Python's str.upper, whose rules are Polars' own."""
-    try:
-        import pyarrow.compute as pc
-    except ImportError:
-        return text.str.to_uppercase()
-    return text.map_batches(lambda s: pl.from_arrow(pc.utf8_upper(s.to_arrow())),
-                            return_dtype=pl.String, is_elementwise=True)
+    """text.str.to_uppercase() as pandas' str.upper() writes it (pyarrow's kernel, one letter
+    at a time): "ß" is "ẞ" (Polars: "SS"), and a letter Polars writes as two or three ("ﬁ" as
+    "FI", "ŉ", Greek letters with accents or an iota) is kept, or made its one capital, as
+    pandas does: the text is cut around those letters and each piece upper-cased."""
+    kept, iota = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗ]", "[ᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]"
+    text = text.str.replace_all("ß", "ẞ", literal=True)
+    piece = pl.element()
+    by_piece = (
+        text.str.extract_all(f"{kept}|{iota}|[^ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]+")
+        .list.eval(
+            pl.when(piece.str.contains(f"^{kept}$")).then(piece)
+            .when(piece.str.contains(f"^{iota}$")).then(piece.str.to_titlecase())
+            .otherwise(piece.str.to_uppercase())
+        )
+        .list.join("")
+    )
+    return pl.when(text.str.contains(f"{kept}|{iota}")).then(by_piece).otherwise(
+        text.str.to_uppercase())
 
 
 def pandas_to_datetime(text, coerce):

@@ -15,17 +15,20 @@ PANDAS_NA_VALUES = [
 
 
 def pandas_title(text):
-    """text in title case as pandas' str.title() writes it. pandas runs pyarrow's kernel, one
-    letter at a time: a word starts after any letter without case, "ß" first in a word is "ẞ",
-    a digraph first in a word is its upper case ("ǆemal" -> "Ǆemal"), "ﬁ" stays "ﬁ"; Polars'
-    to_titlecase follows other rules. The same kernel runs here, on each batch of the column.
-    Without pyarrow pandas runs Python's str.title, whose rules are Polars' own."""
-    try:
-        import pyarrow.compute as pc
-    except ImportError:
-        return text.str.to_titlecase()
-    return text.map_batches(lambda s: pl.from_arrow(pc.utf8_title(s.to_arrow())),
-                            return_dtype=pl.String, is_elementwise=True)
+    """text.str.to_titlecase() as pandas' str.title() writes it (pyarrow's kernel, one letter
+    at a time): "Σ" is "σ" at the end of a word too, "ß" first in a word is "ẞ" (Polars: "Ss"),
+    a digraph first in a word is its upper case ("ǆemal" -> "Ǆemal", Polars: "ǅemal"), "İ"
+    inside a word is "i" (Polars: i and a combining dot), and a letter Polars writes as two or
+    three first in a word ("ﬁ" as "Fi") is kept: a letter without case set before it makes
+    Polars read it as inside a word, and is taken out after."""
+    kept, mark = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾲᾴᾶᾷῂῄῆῇῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷﬀ-ﬆﬓ-ﬗ]", "\ua66e"
+    return (
+        text.str.replace_many({"Σ": "σ", "ß": "ẞ"})
+        .str.replace_all(kept, mark + "$0")
+        .str.to_titlecase()
+        .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"})
+        .str.replace_all(mark + f"({kept})", "$1")
+    )
 
 
 def pandas_to_datetime(text, coerce):
