@@ -31,6 +31,35 @@ AGGREGATIONS = ("sum", "mean", "median", "min", "max", "std", "var", "count", "n
 COUNTS = {"count", "nunique", "size"}
 
 
+# pandas adds the floats of each group with a compensated (Kahan) sum in row order, which no
+# Polars expression follows. Polars' own sum (in another order, not the same from run to run)
+# ends one unit in the last digit away in most groups of a few hundred rows: printed or written
+# to CSV that is 212.40000000000003 for 212.4, and a round(2) of a sum that lands on a half cent
+# (prices times 1.25) gives the other cent in about one group in ten. These helpers add the
+# values exactly, rounded once, which is pandas' result for nearly every group of positive
+# amounts of a few hundred rows and more; where values of both signs cancel, pandas' keeps an
+# error of its own in a third of the groups (README). Each value is cut into a multiple of
+# 2**-20, which add up without error below 2**33, and the rest, added after.
+GROUP_SUM_FUNCTION = "pandas_group_sum"
+GROUP_SUM_DEFINITION = '''\
+def pandas_group_sum(x):
+    """x.sum() of floats in a group_by or a window, as pandas' group sum adds them: exactly,
+    rounded once (Polars' own sum can end a unit in the last digit away, 212.40000000000003
+    for 212.4, and round(2) of a sum on a half cent then gives the other cent). Each value
+    is cut into a multiple of 2**-20, which add up without error, and the small rest."""
+    whole = (x * 1048576.0).round() / 1048576.0
+    return whole.sum() + (x - whole).fill_nan(0.0).sum()
+'''
+GROUP_MEAN_FUNCTION = "pandas_group_mean"
+GROUP_MEAN_DEFINITION = '''\
+def pandas_group_mean(x):
+    """x.mean() of floats in a group_by or a window, as pandas' group mean computes it: the
+    sum added as pandas_group_sum adds it, over the count; missing where there is no value."""
+    whole = (x * 1048576.0).round() / 1048576.0
+    return ((whole.sum() + (x - whole).fill_nan(0.0).sum()) / x.count()).fill_nan(None)
+'''
+
+
 def agg_expr(column: Code, how: str, dtype: str | None = None, *, float32: bool = False) -> Code:
     """One pandas aggregation as a Polars expression, with pandas' treatment of missing values.
 
@@ -57,6 +86,9 @@ def agg_expr(column: Code, how: str, dtype: str | None = None, *, float32: bool 
         # pandas counts the True values as int64; Polars' UInt32 would wrap around below 0
         # in later arithmetic (the sum - 3 of a group with one True is 4294967294)
         return column.method("sum").method("cast", emit.atom("pl.Int64"))
+    if how in ("sum", "mean") and dtype == "float" and not float32:
+        # pandas adds a group's floats with a compensated sum, Polars in another order
+        return emit.call(GROUP_SUM_FUNCTION if how == "sum" else GROUP_MEAN_FUNCTION, column)
     if how == "builtin_sum":  # Python's sum meets NaN: the group's sum is NaN
         return emit.when(emit.binop(column.method("null_count"), "==", 0), column.method("sum"))
     if how in ("builtin_min", "builtin_max"):
@@ -669,9 +701,11 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         return _pandas_scalar(column, expr, "datetime" if column.dtype == "datetime" else None)
     if column.float_int is not None and column.dtype == "int" and how in ("sum", "min", "max"):
         return _float_int_reduction(column, code, expr)
-    if how == "sum" and column.dtype == "float" and not column.element \
-            and ("Float32" in code.text or float32_possible(ctx)):
+    if how == "sum" and column.dtype == "float" and not column.element:
         return _numpy_sum(column, code, expr)
+    if how == "mean" and column.dtype == "float" and not column.element \
+            and not ("Float32" in code.text or float32_possible(ctx)):
+        return _numpy_mean(column, code, expr)
     if how in ("min", "max") and column.dtype is None:
         return _unknown_type_extreme(column, how, expr, ctx)
     if how in NAN_WHEN_EMPTY:
@@ -766,11 +800,33 @@ def _pandas_scalar(column: Column, expr: Code, pytype: str | None = None) -> Sca
 
 
 def _numpy_sum(column: Column, code: Code, expr: Code) -> Scalar:
-    """The sum of a float column that may be float32 (see ops.float32_possible), as pandas
-    computes it: numpy's pairwise sum in the column's own type (np.float32(57.8)), missing
-    values counted 0; Polars adds float32 values in another order (57.800003)."""
+    """The sum of a float column as pandas' Series.sum() computes it: numpy's pairwise sum in
+    the column's own type (np.float32(57.8) for float32), missing values counted 0. Polars
+    adds in another order: the last digit differs in about half of the sums of a few thousand
+    prices (96690495.5379627 for 96690495.53796269), and float32 sums by more (57.800003)."""
     value = column.frame.code.method("select", code).method("collect").method(
         "to_series").method("fill_null", 0).method("to_numpy").method("sum")
+    agg_column = Column(expr, frame=column.frame, name=column.name, refs=column.refs,
+                        versions=column.versions)
+    return Scalar(value, pytype="float", agg=agg_column)
+
+
+# pandas' Series.mean() of floats: numpy's pairwise sum, as Series.sum(), over the count
+MEAN_FUNCTION = "pandas_mean"
+MEAN_DEFINITION = '''\
+def pandas_mean(values):
+    """values.mean() of a float Series as pandas computes it: numpy's pairwise sum of the
+    values, missing ones counted 0, over their count, and NaN when there is none (Polars
+    adds in another order, and the last digit of the mean can differ)."""
+    total = values.fill_null(0.0).to_numpy().sum()
+    return total / values.count() if values.count() else total * float("nan")
+'''
+
+
+def _numpy_mean(column: Column, code: Code, expr: Code) -> Scalar:
+    """The mean of a float64 column as pandas' Series.mean() computes it (MEAN_DEFINITION)."""
+    value = emit.call(MEAN_FUNCTION, column.frame.code.method("select", code).method("collect")
+                      .method("to_series"))
     agg_column = Column(expr, frame=column.frame, name=column.name, refs=column.refs,
                         versions=column.versions)
     return Scalar(value, pytype="float", agg=agg_column)

@@ -36,6 +36,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.groupby import agg_dtype, agg_expr, how_name
+from porter.rules.ops import float32_possible
 from porter.translate import handover
 from porter.translate.context import PandasCall, RuleContext, Unsupported, column_names, derive
 from porter.translate.values import (
@@ -599,7 +600,7 @@ def resample_reduce(call: PandasCall, ctx: RuleContext) -> Value:
     outputs = []
     for column in columns:
         dtype = resampled.frame.dtype(column)
-        expr = agg_expr(emit.col(column), how, dtype)
+        expr = agg_expr(emit.col(column), how, dtype, float32=float32_possible(ctx))
         if how in ("std", "var") and ddof != 1:
             expr = emit.col(column).method(how, ddof=ddof)
         outputs.append(_Output(column, expr, how, dtype, column))
@@ -628,7 +629,8 @@ def resample_agg(call: PandasCall, ctx: RuleContext) -> Value:
         if how == "size":
             expr = emit.pl("len").method("cast", emit.atom("pl.Int64"))
         else:
-            expr = agg_expr(emit.col(column), how, resampled.frame.dtype(column))
+            expr = agg_expr(emit.col(column), how, resampled.frame.dtype(column),
+                            float32=float32_possible(ctx))
         outputs.append(_Output(name, expr, how, resampled.frame.dtype(column),
                                column if how != "size" else None))
 

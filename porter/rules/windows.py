@@ -20,6 +20,7 @@ from porter.rules import rule
 from porter.rules.elementwise import _checked, body_expression, function_value
 from porter.rules.groupby import agg_expr, group_order
 from porter.rules.io_options import QUANTILE_FUNCTION
+from porter.rules.ops import float32_possible
 from porter.translate import handover
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_of, derive, derived_column, select_columns,
@@ -276,7 +277,7 @@ def group_transform(call: PandasCall, ctx: RuleContext) -> Value:
     # the group size as Int64, as pandas' int64 (Polars' UInt32 would wrap around below 0);
     # agg_expr makes a count and a sum of booleans Int64 too
     expr = emit.pl("len").method("cast", emit.atom("pl.Int64")) if how == "size" \
-        else agg_expr(column.code, how, column.dtype)
+        else agg_expr(column.code, how, column.dtype, float32=float32_possible(ctx))
     dtype = "int" if how in ("count", "nunique", "size") or how == "sum" and column.dtype == "bool" \
         else "float" if how in ("mean", "median", "std", "var") else column.dtype
     return derived_column(column, _window(grouped, expr), dtype=dtype)

@@ -9,6 +9,10 @@ from porter.rules.datetimes import GUESS_DEFINITION, GUESS_FUNCTION
 from porter.rules.handover import TEXT_DEFINITION, TEXT_FUNCTION
 from porter.rules.strings import TITLE_DEFINITION, TITLE_FUNCTION, UPPER_DEFINITION, UPPER_FUNCTION
 from porter.rules.selection import DTYPE_PROBE_CONSTANT, DTYPE_PROBE_DEFINITION
+from porter.rules.groupby import (
+    GROUP_MEAN_DEFINITION, GROUP_MEAN_FUNCTION, GROUP_SUM_DEFINITION, GROUP_SUM_FUNCTION,
+    MEAN_DEFINITION, MEAN_FUNCTION,
+)
 from porter.rules.io_options import (
     CATEGORY_COUNTS_DEFINITION, CATEGORY_COUNTS_FUNCTION,
     CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION, CSV_DURATIONS_CONSTANT, CSV_LISTS_CONSTANT,
@@ -110,7 +114,10 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (GUESS_FUNCTION, GUESS_DEFINITION),
                                  (TEXT_FUNCTION, TEXT_DEFINITION),
                                  (UPPER_FUNCTION, UPPER_DEFINITION),
-                                 (TITLE_FUNCTION, TITLE_DEFINITION)):
+                                 (TITLE_FUNCTION, TITLE_DEFINITION),
+                                 (GROUP_SUM_FUNCTION, GROUP_SUM_DEFINITION),
+                                 (GROUP_MEAN_FUNCTION, GROUP_MEAN_DEFINITION),
+                                 (MEAN_FUNCTION, MEAN_DEFINITION)):
         if function not in used or _defines(module, function):
             continue
         body = _insert_after_imports(body, _function(definition))

@@ -13,6 +13,13 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_group_mean(x):
+    """x.mean() of floats in a group_by or a window, as pandas' group mean computes it: the
+    sum added as pandas_group_sum adds it, over the count; missing where there is no value."""
+    whole = (x * 1048576.0).round() / 1048576.0
+    return ((whole.sum() + (x - whole).fill_nan(0.0).sum()) / x.count()).fill_nan(None)
+
+
 def pandas_to_datetime(text, coerce):
     """pd.to_datetime(text) without format=, as pandas reads it: pandas guesses one
     format from the first value (the first format below whose first pattern reads a
@@ -323,7 +330,7 @@ by_recipe = (
     .group_by("recipe")
     .agg(
         pl.col("wheel_id").count().cast(pl.Int64).alias("wheels"),
-        pl.col("loss_pct").mean().alias("mean_loss"),
+        pandas_group_mean(pl.col("loss_pct")).alias("mean_loss"),
     )
     .sort("recipe")
 )

@@ -14,6 +14,13 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_group_mean(x):
+    """x.mean() of floats in a group_by or a window, as pandas' group mean computes it: the
+    sum added as pandas_group_sum adds it, over the count; missing where there is no value."""
+    whole = (x * 1048576.0).round() / 1048576.0
+    return ((whole.sum() + (x - whole).fill_nan(0.0).sum()) / x.count()).fill_nan(None)
+
+
 def pandas_title(text):
     """text.str.to_titlecase() as pandas' str.title() writes it (pyarrow's kernel, one letter
     at a time): "Σ" is "σ" at the end of a word too, "ß" first in a word is "ẞ" (Polars: "Ss"),
@@ -406,7 +413,7 @@ def main():
         .group_by("zone")
         .agg(
             pl.col("stake").drop_nulls().n_unique().cast(pl.Int64).alias("stakes"),
-            pl.col("cm_per_day").mean().alias("cm_per_day"),
+            pandas_group_mean(pl.col("cm_per_day")).alias("cm_per_day"),
             pl.col("elevation_m").max().alias("top_m"),
         )
         .sort("zone")

@@ -15,6 +15,15 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_group_sum(x):
+    """x.sum() of floats in a group_by or a window, as pandas' group sum adds them: exactly,
+    rounded once (Polars' own sum can end a unit in the last digit away, 212.40000000000003
+    for 212.4, and round(2) of a sum on a half cent then gives the other cent). Each value
+    is cut into a multiple of 2**-20, which add up without error, and the small rest."""
+    whole = (x * 1048576.0).round() / 1048576.0
+    return whole.sum() + (x - whole).fill_nan(0.0).sum()
+
+
 def pandas_title(text):
     """text.str.to_titlecase() as pandas' str.title() writes it (pyarrow's kernel, one letter
     at a time): "Σ" is "σ" at the end of a word too, "ß" first in a word is "ẞ" (Polars: "Ss"),
@@ -165,7 +174,7 @@ per_herder = (
     .agg(
         pl.col("day").drop_nulls().n_unique().cast(pl.Int64).alias("days"),
         pl.col("litres").sum().alias("litres"),
-        pl.col("fat_kg").sum().alias("fat_kg"),
+        pandas_group_sum(pl.col("fat_kg")).alias("fat_kg"),
         pl.col("wage").sum().alias("wage"),
     )
     .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))

@@ -13,6 +13,13 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_group_mean(x):
+    """x.mean() of floats in a group_by or a window, as pandas' group mean computes it: the
+    sum added as pandas_group_sum adds it, over the count; missing where there is no value."""
+    whole = (x * 1048576.0).round() / 1048576.0
+    return ((whole.sum() + (x - whole).fill_nan(0.0).sum()) / x.count()).fill_nan(None)
+
+
 def pandas_upper(text):
     """text.str.to_uppercase() as pandas' str.upper() writes it (pyarrow's kernel, one letter
     at a time): "ß" is "ẞ" (Polars: "SS"), and a letter Polars writes as two or three ("ﬁ" as
@@ -391,7 +398,7 @@ weekly = (
     .agg(
         pl.len().cast(pl.Int64).alias("bags"),
         pl.col("wet_kg").sum().alias("wet_kg"),
-        pl.col("dry_ratio").mean().alias("mean_ratio"),
+        pandas_group_mean(pl.col("dry_ratio")).alias("mean_ratio"),
         pl.col("week").first().alias("_porter_key_week"),
     )
     .with_columns(pl.col("_porter_key_week").alias("week"))
