@@ -978,4 +978,7 @@ def _as_frame(call: PandasCall) -> Frame:
     assert isinstance(receiver, Column)
     code = handover.series_frame(receiver)
     name = receiver.name if receiver.name is not None else "0"
-    return Frame(code, columns=(*receiver.frame.index, name), index=receiver.frame.index)
+    # the Series keeps its frame's row labels: after a filter or a sort they are no longer
+    # 0..n-1, which to_csv's index=True (and to_parquet) must not write as such
+    return Frame(code, columns=(*receiver.frame.index, name), index=receiver.frame.index,
+                 labels_intact=receiver.frame.labels_intact)
