@@ -96,3 +96,29 @@ def test_series_to_csv_with_labels_porter_knows_is_ported(tmp_path: Path, expr: 
         """, {"d.csv": CARGO})
     _same_outputs(pd_dir, pl_dir, text)
     assert "TODO" not in text, text
+
+
+# -- read_csv options pandas honours --------------------------------------------------------
+
+@pytest.mark.parametrize("option", ['on_bad_lines="skip"', 'on_bad_lines="warn"'])
+def test_read_csv_bad_lines_skipped(tmp_path: Path, option: str) -> None:
+    # pandas leaves out the row of four fields (v sums to 7); the scan read it as 3,4,5 (11)
+    text, pd_dir, pl_dir = _run_both(tmp_path, f"""
+        import pandas as pd
+        d = pd.read_csv("bad.csv", {option})
+        print(d["v"].sum(), len(d))
+        d.to_csv("o.csv", index=False)
+        """, {"bad.csv": b"id,v,w\n1,2,3\n3,4,5,6\n4,5,6\n"})
+    _same_outputs(pd_dir, pl_dir, text)
+
+
+@pytest.mark.parametrize("option", ['sep=None, engine="python"', 'delimiter=None, engine="python"'])
+def test_read_csv_separator_guessed(tmp_path: Path, option: str) -> None:
+    # sep=None: pandas guesses ";" from the first line; the scan read commas (one column "id;v")
+    text, pd_dir, pl_dir = _run_both(tmp_path, f"""
+        import pandas as pd
+        p = pd.read_csv("p.txt", {option})
+        print(p.columns.tolist(), p["v"].sum())
+        p.to_csv("p.csv", index=False)
+        """, {"p.txt": b"id;v\n1;2\n2;3\n"})
+    _same_outputs(pd_dir, pl_dir, text)

@@ -117,6 +117,18 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         # becomes text), where Polars reads a missing number
         raise ctx.todo("keep_default_na=False: pandas keeps empty fields as \"\" (a number "
                        "column with one becomes text), Polars reads them as missing")
+    bad_lines = call.const("on_bad_lines", None, "error", kinds=(str,)) if call.has("on_bad_lines") else "error"
+    if bad_lines != "error":
+        # pandas leaves out a row with more fields than the header (and warns with "warn");
+        # Polars' reader keeps it, its extra fields cut off, or fails on it
+        raise ctx.todo(f"on_bad_lines={bad_lines!r}: pandas leaves out a row with more fields "
+                       "than the header, Polars' reader keeps it (its extra fields cut off)")
+    for name in ("sep", "delimiter"):
+        if call.has(name) and call.const(name, None, "", kinds=(str, type(None))) is None:
+            # sep=None (engine="python"): pandas guesses the separator from the file's first
+            # line (csv.Sniffer); the scan would read commas
+            raise ctx.todo(f"{name}=None: pandas guesses the separator from the file's first "
+                           "line; give it (sep=\";\") so the scan reads it")
     options: dict[str, Any] = {}
     kwargs: dict[str, object] = {}
     sep = call.const("sep", None, None, kinds=(str,)) or call.const("delimiter", None, None, kinds=(str,))
