@@ -94,6 +94,17 @@ def agg_expr(column: Code, how: str, dtype: str | None = None, *, float32: bool 
     if how in ("builtin_min", "builtin_max"):
         # Python's min/max keep a NaN met first (nothing compares above it) and skip later ones
         return emit.when(column.method("first").method("is_not_null"), column.method(how[8:]))
+    if how in ("numpy_std", "numpy_var"):
+        # np.std / np.var given as the function: pandas 3 calls them on each group's Series,
+        # which numpy hands to Series.std / var with ddof=0 (missing values skipped)
+        if dtype not in ("int", "float"):
+            raise Unsupported(f"np.{how[6:]} of a column not known to be numbers")
+        return column.method(how[6:], ddof=0)
+    if how == "numpy_median":
+        # np.median reads the group's values: one missing value makes the median NaN
+        if dtype not in ("int", "float"):
+            raise Unsupported("np.median of a column not known to be numbers")
+        return emit.when(emit.binop(column.method("null_count"), "==", 0), column.method("median"))
     if how in ("sum", "mean", "median", "min", "max", "std", "var"):
         return column.method(how)
     if how in ("any", "all"):
@@ -112,10 +123,23 @@ def agg_expr(column: Code, how: str, dtype: str | None = None, *, float32: bool 
     raise Unsupported(f"aggregation {how!r}")
 
 
+NUMPY_AGGREGATIONS = {
+    "nansum": "sum", "nanmean": "mean", "amin": "min", "nanmin": "min", "amax": "max",
+    "nanmax": "max", "nanmedian": "median", "median": "numpy_median", "std": "numpy_std",
+    "nanstd": "numpy_std", "var": "numpy_var", "nanvar": "numpy_var",
+}
+
+
 def how_name(value: Value) -> str:
     if isinstance(value, Opaque) and isinstance(value.const, str):
         return value.const
     if isinstance(value, Module):
+        if value.qualname.startswith("numpy."):
+            name = value.qualname.rsplit(".", 1)[-1]
+            # pandas 3 calls a numpy function on each group's Series: sum, mean, min and max
+            # (and their nan* forms) are the Series' own reductions; std and var are too, with
+            # numpy's ddof=0; np.median reads the values (a missing one makes NaN)
+            return NUMPY_AGGREGATIONS.get(name, name)
         return value.qualname.rsplit(".", 1)[-1]
     if isinstance(value, Opaque) and value.code.text in ("sum", "min", "max", "len"):
         # pandas 3 calls a Python builtin on each group's values (NaN included)
@@ -149,7 +173,10 @@ def _builtin_pair(spec: Value, ctx: RuleContext) -> tuple[str, str] | None:
         return None
     function = node.elements[1].value
     if not (isinstance(function, cst.Name) and function.value in ("sum", "min", "max", "len")):
-        return None
+        # ("kg", np.std): a numpy function porter reads (how_name)
+        value = ctx.evaluate(function, {})
+        if not (isinstance(value, Module) and value.qualname.startswith("numpy.")):
+            return None
     column = ctx.evaluate(node.elements[0].value, {})
     if not (isinstance(column, Opaque) and isinstance(column.const, str)):
         return None
@@ -256,6 +283,8 @@ def agg_dtype(how: str, dtype: str | None) -> str | None:
     """porter's dtype name of an aggregate of a column of `dtype` (None: not known)."""
     if how in COUNTS:
         return "int"
+    if how in ("numpy_std", "numpy_var", "numpy_median"):
+        return "float"
     if how in ("mean", "median", "std", "var"):
         if dtype == "duration" and how in ("mean", "median"):
             return "duration"
@@ -577,10 +606,11 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
         return aggregate(grouped, exprs, names, ctx, series_name=columns[0] if single else None,
                          is_series=single, dtypes=dtypes)
     how = how_name(spec_value)
-    if how.startswith("builtin_"):
+    if how.startswith(("builtin_", "numpy_")):
         columns = target_columns(grouped, ctx)
         if columns is None:
-            raise Unsupported("a Python builtin over columns porter does not know")
+            raise Unsupported("a Python builtin or numpy function over columns porter does "
+                              "not know")
         for column in columns:
             add(column, how, column)
         single = grouped.single and len(columns) == 1
@@ -1166,7 +1196,7 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("observed=False keeps the unused categories of a category key "
                           "(rows and columns no row has)")
     how = how_name(call.arg("aggfunc", 3)) if call.has("aggfunc", 3) else "mean"
-    if how not in ("sum", "mean", "median", "min", "max", "count"):
+    if how not in ("sum", "mean", "median", "numpy_median", "min", "max", "count"):
         raise Unsupported(f"aggfunc {how!r}")
     fill = call.const("fill_value", 4, None)
     if fill is not None and (isinstance(fill, bool) or not isinstance(fill, (int, float))):
@@ -1174,7 +1204,7 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     value_dtype = frame.dtype(values)
     # without fill_value, pandas turns every cell float when one combination has no value:
     # decided on the pivoted table, as pandas decides it (pandas_unstacked)
-    float_when_missing = fill is None and how not in ("mean", "median")
+    float_when_missing = fill is None and how not in ("mean", "median", "numpy_median")
     if float_when_missing and how != "count" and value_dtype not in ("int", "float", "bool"):
         raise Unsupported(f"{how} without fill_value of a column not known to be numbers: "
                           "pandas makes every cell float when one is missing")
@@ -1185,7 +1215,7 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     groups = [*keys, columns]
     code = frame.code.method("drop_nulls", groups).method("group_by", groups).method(
         "agg", agg_expr(emit.col(values), how, value_dtype, float32=float32_possible(ctx)))
-    if how in ("mean", "median", "min", "max"):
+    if how in ("mean", "median", "numpy_median", "min", "max"):
         code = code.method("drop_nulls", values)  # pandas drops a group whose value is missing
     # count cells are integers whatever the values' type (a float column's too)
     code = pivot_sorted(code, columns, keys, values, fill,

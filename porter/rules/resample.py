@@ -680,6 +680,11 @@ def resample_agg(call: PandasCall, ctx: RuleContext) -> Value:
             add(columns[0], how, str(how))
         return _binned(resampled, outputs, ctx, series=False, series_name=None)
     how = how_name(spec_value)
+    if how in ("numpy_std", "numpy_var"):
+        # np.std / np.var: pandas 3 calls them on each bin's Series, which numpy hands to
+        # Series.std / var with ddof=0
+        zero = Opaque(emit.lit(0), const=0)
+        return resample_reduce(PandasCall(resampled, how[6:], (), {"ddof": zero}, call.node), ctx)
     if how not in RESAMPLE_AGGREGATIONS:
         raise ctx.todo(f"aggregation {how!r}")
     return resample_reduce(PandasCall(resampled, how, (), {}, call.node), ctx)

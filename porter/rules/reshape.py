@@ -149,7 +149,7 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
                 raise Unsupported(f"aggfunc {how!r} of a column not known to be float: pandas "
                                   "makes the cells float when one combination is missing, "
                                   "which depends on the data")
-        elif how not in ("mean", "median"):
+        elif how not in ("mean", "median", "numpy_median"):
             raise Unsupported(f"aggfunc {how!r}")
         value_name = values.name if values.name is not None else "values"
     while value_name in names:
@@ -167,7 +167,7 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
     if has_values:
         code = code.method("agg", agg_expr(emit.col(value_name), how, values.dtype,
                                            float32=float32_possible(ctx)))
-        if how in ("mean", "median", "min", "max"):
+        if how in ("mean", "median", "numpy_median", "min", "max"):
             code = code.method("drop_nulls", value_name)  # pandas drops a group whose value is missing
     else:
         count = emit.pl("len").method("cast", emit.atom("pl.Int64"))

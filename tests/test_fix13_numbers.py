@@ -1,0 +1,55 @@
+"""Aggregations, windows and number types (round 13): numpy functions given to agg, int
+columns pandas keeps int, the midpoint of an even median.
+
+pandas is the reference: each check runs the script with pandas and its conversion with Polars
+in folders holding the same files, and compares what they print and write (same_text: 5 and
+5.0 differ there, as do two floats one digit apart).
+"""
+
+from __future__ import annotations
+
+import pytest
+
+from support import converted_text, same_text
+
+CO = {"co.csv": "member,month,crates\nAnn,1,10\nAnn,2,7\nBea,1,\nBea,3,4\nCal,2,3\nCal,2,\nCal,1,5\n"}
+
+
+# -- np.std / np.var / np.median given to agg (F-F24, F-F25) -------------------------------
+
+@pytest.mark.parametrize("line", [
+    'print(d.groupby("member")["month"].agg(np.std).tolist())',
+    'print(d.groupby("member")["crates"].agg(np.var).tolist())',
+    'print(d.groupby("member").month.aggregate(np.nanstd).tolist())',
+    'print(d.groupby(["member"])[["month", "crates"]].agg(np.std).values.tolist())',
+    'd.groupby("member").agg(s=("month", np.std), v=("crates", np.var)).to_csv("o.csv")',
+    'd.groupby("member")["crates"].agg(s=np.std, m=np.median).to_csv("o.csv")',
+    'print(d.groupby("member")["crates"].agg(np.median).tolist())',
+    'print(d.groupby("member")["crates"].agg(np.nanmedian).tolist())',
+    'print(d.groupby("member")[["month", "crates"]].agg(np.median).values.tolist())',
+    'd.groupby("member").agg(m=("crates", np.median), t=("crates", np.nansum)).to_csv("o.csv")',
+    'd.pivot_table(index="member", columns="month", values="crates", aggfunc=np.median).to_csv("o.csv")',
+    'pd.crosstab(d["member"], d["month"], values=d["crates"], aggfunc=np.median).to_csv("o.csv")',
+])
+def test_numpy_functions_in_agg(line, tmp_path):
+    """pandas 3 calls the numpy function on each group: np.std / np.var with ddof=0 (Ann's
+    months 1, 2: 0.5), np.median NaN for a group holding a missing value (Bea)."""
+    same_text(f"""
+        import numpy as np
+        import pandas as pd
+        d = pd.read_csv("co.csv")
+        {line}
+        """, tmp_path, CO)
+
+
+def test_numpy_std_in_resample(tmp_path):
+    files = {"v.csv": "day,v,n\n2024-01-01 00:00,1,1\n2024-01-01 12:00,4,2\n"
+                      "2024-01-02 00:00,,3\n2024-01-02 12:00,2,4\n2024-01-04 00:00,8,5\n"}
+    result = same_text("""
+        import numpy as np
+        import pandas as pd
+        v = pd.read_csv("v.csv", parse_dates=["day"])
+        print(v.set_index("day").resample("D")["v"].agg(np.std).tolist())
+        print(v.set_index("day").resample("D")["n"].agg(np.var).tolist())
+        """, tmp_path, files)
+    assert "TODO" not in result.converted_text
