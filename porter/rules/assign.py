@@ -526,6 +526,8 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
+    if len(call.args) > 2:
+        return _set_several(frame, call.args, ctx)
     key, value = call.args
     if isinstance(value, Parts) and isinstance(key, Opaque) and key.is_const:
         # df[["a", "b"]] = s.str.extract(pat): each part is an expression of the frame's rows
@@ -556,6 +558,27 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
         return with_column_updates(frame, new, {}) if frame.columns is None else \
             derive(frame, new, same_rows=True, columns=None)
     raise Unsupported("assigning to several columns or to a computed key")
+
+
+def _set_several(frame: Frame, args: tuple[Value, ...], ctx: RuleContext) -> Frame:
+    """`df["a"], df["b"] = x, y` or `df["a"] = df["b"] = x` (the engine passes the keys and
+    values in turn): Python computes every value before it sets a column, so each is an
+    expression of the frame as it was, and one with_columns, which reads the frame it is given,
+    sets them all (`df["a"], df["b"] = df["b"], df["a"]` swaps). A name set twice keeps the
+    last value, in the place the first made."""
+    values: dict[str, Value] = {}
+    for key, value in zip(args[::2], args[1::2]):
+        if not (isinstance(key, Opaque) and isinstance(key.const, str)):
+            raise Unsupported("several columns set at once, one of them by a key that is not a "
+                              "column name")
+        values[key.const] = value
+    result = set_nullable_ints(
+        with_columns(frame, [(name, *value_expr(value, frame, ctx)) for name, value in values.items()]),
+        {name: value_mark(value, ctx) for name, value in values.items()})
+    for name, value in values.items():
+        if isinstance(value, Column) and value.float_int is not None:
+            result = mark_float_ints(result, [name], value.float_int)
+    return result
 
 
 @rule("frame.join")
@@ -599,8 +622,9 @@ def join_parts(call: PandasCall, ctx: RuleContext) -> Value:
 def assign(call: PandasCall, ctx: RuleContext) -> Value:
     """df.assign(c=expr, d=lambda d: ...) -> .with_columns(...).
 
-    Handles: pandas evaluates the keywords in order, so a keyword that uses a column made by
-    an earlier one starts a new with_columns.
+    Handles: pandas evaluates the keywords in order, so a lambda that uses a column made by
+    an earlier one starts a new with_columns; a Series (not a lambda) was computed before the
+    call, from the columns as they were (`assign(a=df["b"], b=df["a"])` swaps).
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
@@ -611,10 +635,11 @@ def assign(call: PandasCall, ctx: RuleContext) -> Value:
     made: set[str] = set()
     marks: dict[str, str | None] = {}  # pandas' nullable integers among them
     for name, value in call.kwargs.items():
-        if isinstance(value, Opaque) and isinstance(value.node, cst.Lambda):
+        made_by_lambda = isinstance(value, Opaque) and isinstance(value.node, cst.Lambda)
+        if made_by_lambda:
             # the lambda receives the frame with the earlier keywords' columns already in it
-            value = frame_lambda(value.node, with_columns(frame, pending), ctx)
-        if isinstance(value, Column) and value.refs & made:
+            value = frame_lambda(value.node, with_columns(frame, pending), ctx)  # type: ignore[union-attr]
+        if made_by_lambda and isinstance(value, Column) and value.refs & made:
             frame = set_nullable_ints(with_columns(frame, pending), marks)
             pending, made, marks = [], set(), {}
             value = _rebase(value, frame)

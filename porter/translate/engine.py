@@ -461,6 +461,10 @@ class _Walker:
             pytype = "str" if _iterates_names(iter_value) else None
             for name in _target_names(stmt.target):
                 loop_env[name] = Opaque(emit.atom(name), pytype=pytype)
+            if isinstance(iter_value, Scalar) and iter_value.items == "text" \
+                    and isinstance(stmt.target, cst.Name):
+                # pandas' text, nan for a missing one: null again inside Polars expressions
+                loop_env[stmt.target.value] = Scalar(emit.atom(stmt.target.value), pytype="text")
         else:
             changes["test"] = self.header(stmt.test, env, stmt)
             loop_env = dict(env)
@@ -1214,6 +1218,11 @@ class _Walker:
         if stmt.value is None:
             return None, []
         targets = [t.target for t in stmt.targets] if isinstance(stmt, cst.Assign) else [stmt.target]
+        several = _column_targets(stmt)
+        if several is not None:
+            result = self.set_columns(stmt, several, env, evaluator, indent)
+            if result is not None:
+                return result
         if len(targets) == 1:
             target = targets[0]
             if isinstance(target, cst.Name) and isinstance(stmt, cst.Assign):
@@ -1254,6 +1263,31 @@ class _Walker:
         lhs = "".join(f"{self.services.code_for(t)} = " for t in targets)
         return emit.layout_chain(value.code, indent, lhs), list(value.sites)
 
+    def set_columns(self, stmt: cst.Assign, targets: list[cst.Subscript], env: dict[str, Value],
+                    evaluator: Evaluator, indent: str) -> tuple[str | None, list[SiteDraft]] | None:
+        """`df["a"], df["b"] = x, y` and `df["a"] = df["b"] = x`: Python computes every value
+        before it sets a column, so the values are all expressions of the frame as it was, set
+        in one step (frame.setitem with several keys and values); pandas code left on the
+        LazyFrame failed."""
+        owner = targets[0].value
+        assert isinstance(owner, cst.Name)
+        frame = evaluator.eval(owner)
+        if not isinstance(frame, Frame):
+            return None
+        if len(stmt.targets) > 1:
+            value = evaluator.eval(stmt.value)
+            values = [value] * len(targets)
+        else:
+            node = stmt.value
+            assert isinstance(node, (cst.Tuple, cst.List))
+            values = [evaluator.eval(e.value) for e in node.elements]
+        args: list[Value] = []
+        for target, value in zip(targets, values):
+            args += [evaluator.eval(_index_of(target)), value]
+        call = PandasCall(frame, "setitem", tuple(args), node=targets[0])
+        result = evaluator.dispatch("frame.setitem", call, stmt)
+        return self.bind_changed(owner.value, frame, result, env, indent)
+
     def unpack(self, target: cst.Tuple | cst.List, node: cst.BaseExpression, env: dict[str, Value],
                evaluator: Evaluator, indent: str) -> tuple[str | None, list[SiteDraft]] | None:
         """`a, b = jan, feb` binds each name as `a = jan` would (the names were left holding
@@ -1282,9 +1316,9 @@ class _Walker:
     def aug_assign(self, stmt: cst.AugAssign, env: dict[str, Value], evaluator: Evaluator,
                    indent: str) -> tuple[str | None, list[SiteDraft]]:
         if isinstance(stmt.target, cst.Subscript):
-            operator = {cst.AddAssign: cst.Add(), cst.SubtractAssign: cst.Subtract(),
-                        cst.MultiplyAssign: cst.Multiply(), cst.DivideAssign: cst.Divide()}.get(
-                type(stmt.operator))
+            # `x[k] op= v` is `x[k] = x[k] op v` for every operator (the rule of the operator
+            # ports it or keeps it on pandas; never pandas code left on a LazyFrame)
+            operator = _AUGMENTED.get(type(stmt.operator))
             if operator is not None:
                 expr = cst.BinaryOperation(left=_whole_column(stmt.target), operator=operator,
                                            right=stmt.value)
@@ -1832,12 +1866,39 @@ def _root_and_path(node: cst.BaseExpression) -> tuple[str | None, str]:
     return node.value, ".".join(reversed(path)) or "setitem"
 
 
+def _column_targets(stmt: cst.BaseSmallStatement) -> list[cst.Subscript] | None:
+    """The targets of `df["a"], df["b"] = x, y` (as many values, written out) or of
+    `df["a"] = df["b"] = x`: subscripts of one name, which Engine.set_columns sets in one
+    step; None for any other statement."""
+    if not isinstance(stmt, cst.Assign):
+        return None
+    if len(stmt.targets) > 1:
+        targets = [t.target for t in stmt.targets]
+    else:
+        target, value = stmt.targets[0].target, stmt.value
+        if not isinstance(target, (cst.Tuple, cst.List)) or not isinstance(value, (cst.Tuple, cst.List)) \
+                or len(target.elements) != len(value.elements) \
+                or any(isinstance(e, cst.StarredElement) for e in (*target.elements, *value.elements)):
+            return None
+        targets = [e.value for e in target.elements]
+    if not all(isinstance(t, cst.Subscript) and isinstance(t.value, cst.Name)
+               and len(t.slice) == 1 and isinstance(t.slice[0].slice, cst.Index) for t in targets):
+        return None
+    if len({t.value.value for t in targets}) != 1:  # type: ignore[attr-defined]
+        return None
+    return targets  # type: ignore[return-value]
+
+
 def _rewritten_change(target: cst.BaseExpression, value: Value, stmt: cst.BaseSmallStatement) -> bool:
     """Whether a rule takes the change: `df[key] = ...`, `df.loc[...] = ...`, `df.attr = ...`
-    and `del df[key]` on a frame (the rule itself keeps pandas, handing the frame over, when
-    it cannot port the change)."""
+    and `del df[key]` on a frame, alone or (`df["a"], df["b"] = ...`, `df["a"] = df["b"] = ...`)
+    with other columns of the frame (the rule itself keeps pandas, handing the frame over, when
+    it cannot port the change). A subscript among other targets (`x, df["a"] = ...`) is no
+    rule's: the frame is handed to pandas first."""
     if not isinstance(value, Frame):
         return False
+    if isinstance(stmt, cst.Assign) and (len(stmt.targets) > 1 or stmt.targets[0].target is not target):
+        return _column_targets(stmt) is not None
     owner = target.value  # type: ignore[attr-defined]
     if isinstance(target, cst.Subscript):
         if isinstance(owner, cst.Name):
@@ -2287,6 +2348,16 @@ def _written_names(target: cst.BaseExpression | None) -> tuple[str, ...] | None:
             or any(isinstance(e, cst.StarredElement) for e in last.value.elements):
         return None
     return tuple(names)  # type: ignore[arg-type]
+
+
+_AUGMENTED: dict[type, cst.BaseBinaryOp] = {
+    cst.AddAssign: cst.Add(), cst.SubtractAssign: cst.Subtract(),
+    cst.MultiplyAssign: cst.Multiply(), cst.DivideAssign: cst.Divide(),
+    cst.FloorDivideAssign: cst.FloorDivide(), cst.ModuloAssign: cst.Modulo(),
+    cst.PowerAssign: cst.Power(), cst.BitAndAssign: cst.BitAnd(), cst.BitOrAssign: cst.BitOr(),
+    cst.BitXorAssign: cst.BitXor(), cst.LeftShiftAssign: cst.LeftShift(),
+    cst.RightShiftAssign: cst.RightShift(), cst.MatrixMultiplyAssign: cst.MatrixMultiply(),
+}
 
 
 def _whole_column(target: cst.Subscript) -> cst.BaseExpression:
