@@ -10,7 +10,7 @@ from __future__ import annotations
 
 import pytest
 
-from support import converted_text, same_text
+from support import convert, same_text
 
 CO = {"co.csv": "member,month,crates\nAnn,1,10\nAnn,2,7\nBea,1,\nBea,3,4\nCal,2,3\nCal,2,\nCal,1,5\n"}
 
@@ -53,3 +53,43 @@ def test_numpy_std_in_resample(tmp_path):
         print(v.set_index("day").resample("D")["n"].agg(np.var).tolist())
         """, tmp_path, files)
     assert "TODO" not in result.converted_text
+
+
+# -- int results of group windows where a key is missing (E-F01) ----------------------------
+
+KEYS = {"d.csv": "grp,qty\na,1\n,2\na,3\nb,4\n"}
+
+
+@pytest.mark.parametrize("line", [
+    'df["n"] = df.groupby("grp").cumcount()',
+    'df["n"] = df.groupby("grp")["qty"].transform("sum")',
+    'df["n"] = df.groupby("grp")["qty"].cumsum()',
+])
+def test_int_window_with_a_missing_key_beside_nullable_ints(line, tmp_path):
+    """pandas gives the row of the missing key NaN: the column is float64 (0.0, 1.0), even in
+    a script that makes one of pandas' nullable integers elsewhere."""
+    same_text(f"""
+        import pandas as pd
+        df = pd.read_csv("d.csv")
+        df["q"] = df["qty"].astype("Int64")
+        {line}
+        df.to_csv("out.csv", index=False)
+        """, tmp_path, KEYS)
+
+
+@pytest.mark.parametrize("line", [
+    'df["n"] = df.groupby("grp").cumcount()',
+    'df["n"] = df.groupby("grp")["qty"].transform("count")',
+])
+def test_int_window_rows_of_a_missing_key_dropped_is_lowered(line):
+    """After dropna pandas still writes 0.0 (the column was made float64 by the missing key);
+    Polars' column is Int64 again: the dropna says so."""
+    result = convert(f"""
+        import pandas as pd
+        df = pd.read_csv("d.csv")
+        {line}
+        df = df.dropna()
+        df.to_csv("out.csv", index=False)
+        """)
+    sites = [s for s in result.sites if s.key == "frame.dropna"]
+    assert sites and sites[0].confidence < 1 and "group key is missing" in sites[0].message

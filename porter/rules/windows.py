@@ -26,7 +26,7 @@ from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_of, derive, derived_column, select_columns,
 )
 from porter.translate.values import (
-    Accessor, Column, Frame, Grouped, Opaque, Scalar, Value, fresh_token,
+    NOT_NULLABLE, Accessor, Column, Frame, Grouped, Opaque, Scalar, Value, fresh_token,
 )
 
 CUMULATIVE = {"cumsum": "cum_sum", "cumprod": "cum_prod", "cummax": "cum_max", "cummin": "cum_min"}
@@ -219,6 +219,22 @@ def _window(grouped: Grouped, expr: Code, missing: Code | None = None, *,
     return emit.when(_keys_present(grouped), windowed, missing)
 
 
+MISSING_KEY_FLOAT = "a row's group key is missing (pandas gives that row NaN)"
+
+
+def _key_missing_float(grouped: Grouped, result: Column, nullable: str | None = None) -> Column:
+    """An int result of a group window: pandas gives the rows of a missing key NaN, which
+    makes the whole column float64 (0.0, 1.0), int64 where no key is missing. Polars keeps
+    Int64 with those rows missing; marked (Frame.float_ints) so they are written and printed
+    as pandas' floats, and a step that drops those rows says so (context.lost_float_ints).
+    `nullable`: the source column's Column.nullable_int; pandas' nullable integers stay
+    integers beside <NA>, and a count (cumcount) is never one (NOT_NULLABLE)."""
+    if grouped.dropna and result.dtype == "int" and result.float_int is None \
+            and not nullable:
+        return replace(result, float_int=MISSING_KEY_FLOAT, nullable_int=nullable)
+    return result
+
+
 def _selected(call: PandasCall) -> tuple[Grouped, Column]:
     grouped = call.receiver
     assert isinstance(grouped, Grouped)
@@ -280,7 +296,8 @@ def group_transform(call: PandasCall, ctx: RuleContext) -> Value:
         else agg_expr(column.code, how, column.dtype, float32=float32_possible(ctx))
     dtype = "int" if how in ("count", "nunique", "size") or how == "sum" and column.dtype == "bool" \
         else "float" if how in ("mean", "median", "std", "var") else column.dtype
-    return derived_column(column, _window(grouped, expr), dtype=dtype)
+    return _key_missing_float(grouped, derived_column(column, _window(grouped, expr), dtype=dtype),
+                              column.nullable_int)
 
 
 # the group's frame inside a transform function: code that reads it as a frame (a collected
@@ -384,7 +401,8 @@ def _transform_function(call: PandasCall, grouped: Grouped, column: Column, func
     if GROUP_FRAME in expr.text or (result.refs if isinstance(result, Column) else {column.name}) \
             - {column.name}:
         raise Unsupported("the function reads the group as a frame (a collected value, a filter)")
-    return derived_column(column, _window(grouped, expr), dtype=dtype)
+    return _key_missing_float(grouped, derived_column(column, _window(grouped, expr), dtype=dtype),
+                              column.nullable_int)
 
 
 # what a reduction of the group's values is, by the method's name (else the column's type)
@@ -438,8 +456,9 @@ def _reductions_combined(param: str, body: cst.BaseExpression, grouped: Grouped,
         raise Unsupported("the function's reductions are combined in a way porter cannot write "
                           "as an expression")
     expr = ctx.bool_expr(result, grouped.frame)
-    return derived_column(column, _window(grouped, expr, over=expr), dtype=result.dtype,
-                          others=[result])
+    return _key_missing_float(grouped, derived_column(
+        column, _window(grouped, expr, over=expr), dtype=result.dtype, others=[result]),
+        column.nullable_int)
 
 
 @rule(*(f"groupby.{name}" for name in CUMULATIVE))
@@ -467,7 +486,8 @@ def group_cumulative(call: PandasCall, ctx: RuleContext) -> Value:
         # True counted as 1 (pandas' int64; float64 where a key is missing, the same values)
         running = ctx.bool_expr(column, grouped.frame).method(
             "cast", emit.atom("pl.Int64")).method("cum_sum")
-        return derived_column(column, _window(grouped, running), dtype="int")
+        return _key_missing_float(grouped, derived_column(column, _window(grouped, running),
+                                                          dtype="int"), NOT_NULLABLE)
     if call.name == "cumsum" and column.dtype == "duration" and grouped.dropna:
         raise Unsupported("a running sum of durations: where a key is missing, pandas' sum runs "
                           "on past a missing duration as a huge negative number")
@@ -482,7 +502,8 @@ def group_cumulative(call: PandasCall, ctx: RuleContext) -> Value:
         over = emit.when(_keys_present(grouped).method("all"), _over(grouped, running),
                          _over(grouped, quirk))
         return derived_column(column, _window(grouped, running, over=over), dtype=column.dtype)
-    return derived_column(column, _window(grouped, running), dtype=column.dtype)
+    return _key_missing_float(grouped, derived_column(column, _window(grouped, running),
+                                                      dtype=column.dtype), column.nullable_int)
 
 
 def _missing_time_is_earliest(grouped: Grouped, column: Column, ctx: RuleContext) -> bool:
@@ -545,7 +566,8 @@ def group_cumcount(call: PandasCall, ctx: RuleContext) -> Value:
     if not ascending:
         position = emit.binop(emit.binop(emit.pl("len"), "-", 1), "-", position)
     base = column_of(grouped.frame, grouped.keys[0])
-    return derived_column(base, _window(grouped, position), dtype="int", name=None)
+    return _key_missing_float(grouped, derived_column(base, _window(grouped, position),
+                                                      dtype="int", name=None), NOT_NULLABLE)
 
 
 @rule("groupby.ffill", "groupby.bfill")
