@@ -167,6 +167,9 @@ class Scalar(Value):
     # the value as a Polars expression usable in any frame (a constant: pl.duration(days=7) for
     # pd.Timedelta(days=7)); `code` stays the plain Python value for code outside expressions
     expr: Code | None = field(default=None, kw_only=True)
+    # an array of pandas' values (unique() of text or categories): "text" when its items are
+    # text with nan for a missing one, which a loop variable over it keeps (context.expr_in)
+    items: str | None = field(default=None, kw_only=True)
 
 
 @dataclass(frozen=True)
