@@ -746,7 +746,12 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
                          numpy=numpy)
     # a count, or a sum of integers or booleans, is a Python int (stored as a column: Int64)
     whole = how in ("count", "nunique") or how == "sum" and column.dtype in ("int", "bool")
-    return scalar_of(column, expr, "int" if whole else None, numpy=column.dtype is None)
+    scalar = scalar_of(column, expr, "int" if whole else None, numpy=column.dtype is None)
+    if how == "nunique":
+        # pandas' nunique() is a Python int (printed 2, not np.int64(2) inside a list)
+        return replace(scalar, code=column.frame.code.method("select", expr).method("collect")
+                       .method("item"))
+    return scalar
 
 
 # numpy's reductions given a Series call the Series' own method (numpy passes ddof=0 to std
@@ -973,14 +978,20 @@ def unique(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: numbers are a numpy array, as pandas gives them (to_numpy()): a missing value is
     nan (NaN and a missing value are one value, as pandas counts them), an integer column with
     one is float, and tolist() / iterating give numbers.
-    Caveats: text, True/False and values of unknown type are a numpy array of Polars' values,
-    where a missing value is None, not nan (0.95; None still compares in Polars expressions,
-    nan would not against text); categories stay a Polars Series (0.9: no tolist()). Dates,
+    Text is pandas' own array of the distinct values (nan for a missing one; a loop over it
+    compares as a missing text in Polars expressions); categories (pd.cut, astype("category"))
+    pandas' Categorical of them (tolist() gives nan for a missing one). Dates,
     times and durations are pandas' own array (date objects, Timestamps, Timedeltas, NaT).
+    Caveats: values of unknown type are a numpy array of Polars' values, where a missing value
+    is None, not nan (0.95; None still compares in Polars expressions, nan would not against
+    text); a printed Categorical lists its categories, in another order for astype("category")
+    (0.9 when printed).
     """
     column = call.receiver
     assert isinstance(column, Column)
     ctx.reject_unknown(call)
+    from porter.rules.selection import nullable_values_lower
+    nullable_values_lower(column, ctx)  # pandas' nullable text, True/False, floats: <NA>
     values = column.code
     if column.dtype == "float":
         values = values.method("fill_nan", None)  # pandas has one missing value, NaN
@@ -999,6 +1010,11 @@ def unique(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.handover = True
         return Scalar(series.method("to_pandas").method("fillna", emit.atom('float("nan")'))
                       .method("to_numpy"), pytype="array")
+    if column.dtype == "str" and not column.element:
+        # pandas' own array of the distinct texts (its string array, printed as such): nan for
+        # a missing one, in tolist() and in a loop over it (null again in Polars expressions)
+        ctx.handover = True
+        return Scalar(series.method("to_pandas").method("unique"), pytype="array", items="text")
     if column.dtype in ("str", None):
         ctx.lower("a missing value in the distinct values is None here, nan in pandas", 0.95)
         return Scalar(series.method("to_numpy"), pytype="array")
@@ -1011,6 +1027,14 @@ def unique(call: PandasCall, ctx: RuleContext) -> Value:
         if column.dtype == "date":
             values = values.attr("dt").attr("date")
         return Scalar(values.method("unique"), pytype="array")
+    if column.dtype in ("category", "enum"):
+        # pandas' unique of a category column is a Categorical: tolist() and iterating give the
+        # labels and nan for a missing one (a Polars Series has no tolist(), and gives None)
+        ctx.handover = True
+        if ctx.shown:
+            ctx.lower("the printed Categorical lists its categories: for astype(\"category\") "
+                      "pandas sorts them, and a merge indicator's are not ordered in pandas", 0.9)
+        return Scalar(series.method("to_pandas").method("unique"), pytype="array", items="text")
     ctx.lower(f"the distinct values of a {column.dtype} column are a Polars Series: iterating "
               "gives Python values (None for a missing one), and pandas' array methods such as "
               "tolist() are not there", 0.9)

@@ -13,6 +13,7 @@ from porter.rules import rule
 from porter.translate import handover
 from porter.translate.context import PandasCall, RuleContext
 from porter.translate.values import Column, Frame, Opaque, Scalar, Value
+from porter.rules.selection import nullable_values_lower
 
 
 def _series(column: Column) -> Code:
@@ -39,7 +40,11 @@ def series_values(call: PandasCall, ctx: RuleContext) -> Value:
     gives pandas' own values (to_pandas() with its dtype): ints and <NA>. tolist() of dates,
     times and durations gives pandas' Timestamps, datetime.date objects and Timedeltas, NaT for
     a missing one (to_pandas()); values of dates is pandas' object array of them.
-    Caveats: a column of unknown type gives None for a missing text where pandas gives nan.
+    Categories (pd.cut, astype("category")) are pandas' Categorical: nan for a missing label.
+    values of True/False with a missing value is pandas' object array, nan for it.
+    Caveats: values of a column of unknown type give None for a missing text where pandas
+    gives nan (its tolist() gives nan); in a script that names pandas' nullable string,
+    boolean or float types a missing value may be <NA> in pandas (0.8).
     """
     column = call.receiver
     assert isinstance(column, Column)
@@ -51,6 +56,7 @@ def series_values(call: PandasCall, ctx: RuleContext) -> Value:
             return Scalar(code.attr("values"), pytype="array")
         return Scalar(code.method(call.name), pytype="list" if call.name in ("tolist", "to_list")
                       else "array")
+    nullable_values_lower(column, ctx)  # pandas' nullable text, True/False, floats: <NA>
     if column.dtype in ("datetime", "duration", "date") and not column.element \
             and (call.name in ("tolist", "to_list") or column.dtype == "date"):
         # pandas' own values: tolist() gives Timestamps and Timedeltas (Polars' datetime and
@@ -68,12 +74,35 @@ def series_values(call: PandasCall, ctx: RuleContext) -> Value:
         if call.name in ("tolist", "to_list"):
             return Scalar(code.method("tolist"), pytype="list")
         return Scalar(code.method("to_numpy"), pytype="array")
-    if (column.dtype == "bool" and not column.null_is_false or column.dtype is not None
+    if column.dtype in ("category", "enum") and not column.element:
+        # pandas' Categorical: tolist() and to_numpy() give the labels and nan for a missing
+        # one (Polars' to_numpy gives None), values is the Categorical itself
+        ctx.handover = True
+        code = _series(column).method("to_pandas")
+        if call.name == "values":
+            return Scalar(code.attr("values"), pytype="array")
+        return Scalar(code.method("tolist" if call.name == "to_list" else call.name),
+                      pytype="list" if call.name in ("tolist", "to_list") else "array")
+    if column.dtype == "bool" and not column.null_is_false and call.name in ("values", "to_numpy"):
+        # True/False with a missing value is an object array in pandas holding nan (Polars'
+        # to_numpy gives None); without one a bool array, as to_pandas gives it
+        ctx.handover = True
+        return Scalar(_series(column).method("to_pandas").method("fillna", emit.atom('float("nan")'))
+                      .method("to_numpy"), pytype="array")
+    if (column.dtype in ("bool", None) and not column.null_is_false or column.dtype is not None
             and column.dtype.startswith("list[")) and call.name in ("tolist", "to_list"):
         # True/False with a missing value is an object column in pandas: its nan, not None
-        # lists as lists (to_numpy would give numpy arrays), a missing one nan as in pandas
-        return Scalar(Code(f"[float(\"nan\") if v is None else v for v in "
-                           f"{_series(column).method('to_list').text}]"), pytype="list")
+        # lists as lists (to_numpy would give numpy arrays), a missing one nan as in pandas;
+        # a column of unknown type as numpy gives it (a number column's nan, an integer one
+        # with a missing value float), a missing text or True/False nan as in pandas
+        if column.dtype is None:
+            if ctx.nullable_ints_possible and column.nullable_int is None:
+                ctx.lower(NULLABLE_INT_VALUES, 0.9)
+            values = _series(column).method("to_numpy").method("tolist")
+        else:
+            values = _series(column).method("to_list")
+        return Scalar(Code(f"[float(\"nan\") if v is None else v for v in {values.text}]"),
+                      pytype="list")
     if column.dtype not in ("int", "float", "bool"):
         ctx.lower("a missing text value is None here, nan in pandas", 0.95)
     if column.dtype in ("int", None) and ctx.nullable_ints_possible and column.nullable_int is None:
@@ -92,7 +121,7 @@ def frame_values(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: missing numbers become nan; a frame of numbers only is Polars' own array; text,
     dates beside other columns (pandas keeps Timestamps in an object array, Polars casts them
     to numbers) and columns of unknown type are handed to pandas for the array, which gives
-    pandas' values exactly.
+    pandas' values exactly (dates of s.dt.date as datetime.date objects).
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
@@ -104,7 +133,10 @@ def frame_values(call: PandasCall, ctx: RuleContext) -> Value:
     if numbers:
         return Scalar(frame.code.method("collect").method("to_numpy"), pytype="array")
     ctx.handover = True  # pandas' own array: object cells as pandas holds them
-    return Scalar(frame.code.method("collect").method("to_pandas").method("to_numpy"), pytype="array")
+    # dates (s.dt.date) are datetime.date objects in pandas, Timestamps from to_pandas()
+    dates = {"date_as_object": True} if any(t == "date" for _, t in frame.dtypes) else {}
+    return Scalar(frame.code.method("collect").method("to_pandas", **dates).method("to_numpy"),
+                  pytype="array")
 
 
 
@@ -115,8 +147,8 @@ def series_to_dict(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: the key of a groupby or value_counts result (one key), or the row number of a
     frame labelled 0..n-1; the values are pandas' own (an integer column with a missing value
-    is float, a missing value nan, dates Timestamps; pandas' nullable integers ints and
-    None), as is each key. Only the labels and the
+    is float, a missing value nan, dates Timestamps, dates of s.dt.date datetime.date objects;
+    pandas' nullable integers ints and None), as is each key. Only the labels and the
     column cross to pandas, once, where the dict is made.
     Caveats: labels of several keys (tuples in pandas) and a frame whose labels are no longer
     0..n-1 are TODOs.
@@ -130,7 +162,10 @@ def series_to_dict(call: PandasCall, ctx: RuleContext) -> Value:
     if len(frame.index) == 1 and name is not None and name not in frame.index:
         key = frame.index[0]
         value = name if expr.text == emit.col(name).text else expr.method("alias", name)
-        code = frame.code.method("select", key, value).method("collect").method("to_pandas")
+        code = frame.code.method("select", key, value).method("collect")
+        # pandas' dates (s.dt.date) are datetime.date objects, which to_pandas makes Timestamps
+        code = code.method("to_pandas", date_as_object=True) if "date" in (
+            frame.dtype(key), column.dtype) else code.method("to_pandas")
         if column.nullable_int and column.dtype == "int":  # pandas' nullable integers: 1, None
             code = code.method("astype", {name: column.nullable_int})
         if frame.dtype(key) == "bool":
@@ -138,7 +173,8 @@ def series_to_dict(call: PandasCall, ctx: RuleContext) -> Value:
             code = code.method("fillna", {key: emit.atom('float("nan")')})
         code = code.method("set_index", key).index(name).method("to_dict")
     elif not frame.index and frame.labels_intact:
-        code = _series(column).method("to_pandas")
+        code = _series(column).method("to_pandas", **({"date_as_object": True}
+                                                      if column.dtype == "date" else {}))
         if column.nullable_int and column.dtype == "int":  # pandas' nullable integers: 1, None
             code = code.method("astype", column.nullable_int)
         code = code.method("to_dict")
@@ -157,10 +193,12 @@ def series_position(call: PandasCall, ctx: RuleContext) -> Value:
 
     A printed value of pandas' nullable integers is pandas' own (<NA> for a missing one); a
     text is pandas' own (nan for a missing one), a missing text again inside expressions.
-    Caveats: a missing date is None here, NaT in pandas; slices, lists of positions and
-    a position computed at run time are TODOs.
+    A datetime is pandas' Timestamp (NaT for a missing one), read through to_pandas(); a
+    True/False with a missing value in its column is pandas' Python bool, nan for the missing
+    one (its object column), a numpy bool otherwise.
+    Caveats: slices, lists of positions and a position computed at run time are TODOs.
     """
-    from porter.rules.groupby import scalar_of  # groupby builds on the values taken here
+    from porter.rules.groupby import _pandas_scalar, scalar_of  # groupby builds on the values taken here
     column = call.receiver
     assert isinstance(column, Column)
     key = call.args[0] if len(call.args) == 1 else None
@@ -169,6 +207,7 @@ def series_position(call: PandasCall, ctx: RuleContext) -> Value:
                        "are head / tail / slice of the frame)")
     if column.dtype not in ("int", "float", "str", "bool", "datetime") or column.element:
         raise ctx.todo("a value of a column whose type porter does not know")
+    nullable_values_lower(column, ctx)  # pandas' nullable text, True/False, floats: <NA>
     if column.nullable_int and column.dtype == "int" and not column.frame.index and ctx.shown:
         # printed: pandas' nullable integers give np.int64, or <NA> for a missing value
         ctx.handover = True
@@ -183,5 +222,16 @@ def series_position(call: PandasCall, ctx: RuleContext) -> Value:
         one = column.frame.code.method("select", expr).method("collect").method("to_series") \
             .method("to_pandas").attr("iloc").index(0)
         return replace(scalar_of(column, expr, None), code=one, pytype="text")
-    scalar = scalar_of(column, expr, column.dtype if column.dtype in ("int", "float") else None)
-    return replace(scalar, pytype="datetime") if column.dtype == "datetime" else scalar
+    if column.dtype == "bool" and not column.null_is_false:
+        # True/False with a missing value is an object column in pandas: a Python bool, or nan
+        # for the missing one (item() gave None); without one pandas' numpy bool. Whether the
+        # column has one decides, so the column is read whole
+        one = column.frame.code.method("select", value).method("collect").method("to_series") \
+            .method("to_pandas").method("fillna", emit.atom('float("nan")')).attr("iloc") \
+            .index(key.const)
+        return replace(scalar_of(column, expr, None), code=one)
+    if column.dtype == "datetime":
+        # pandas' value: a Timestamp (its normalize(), quarter, day_name() are there), NaT for
+        # a missing one; item() gave a Python datetime and None (printed "None")
+        return _pandas_scalar(column, expr, "datetime")
+    return scalar_of(column, expr, column.dtype if column.dtype in ("int", "float") else None)

@@ -534,6 +534,24 @@ def _check_dtype_names(ctx: RuleContext) -> None:
                           "columns, whose dtype names porter does not follow")
 
 
+def nullable_values_lower(column: Column, ctx: RuleContext) -> None:
+    """Values of a column handed to Python (tolist, values, unique, iloc) in a script that names
+    pandas' nullable string, boolean or float types: pandas gives <NA> for a missing value of
+    such a column, nan or None here, and porter does not follow which columns are."""
+    module = ctx.python_module
+    if module is None or not _names_nullable_types(module):
+        if column.dtype in ("float", None) and ctx.nullable_ints_possible:
+            ctx.lower("pandas' nullable integers divided or averaged are its nullable Float64, "
+                      "whose missing value is <NA> (nan here)", 0.9)
+        return
+    if column.dtype in ("str", "bool", "float", None):
+        # a TODO would not help: the hand-over reads the column back through to_pandas(),
+        # which makes it a plain column again
+        ctx.lower("the script names pandas' nullable string, boolean or float types: a "
+                  "missing value of such a column is <NA> in pandas (nan or None here), and "
+                  "porter does not follow which columns are", 0.8)
+
+
 @functools.lru_cache(maxsize=16)
 def _names_nullable_types(module: ast.Module) -> bool:
     for node in ast.walk(module):

@@ -49,8 +49,7 @@ print(
     len(branches),
     loans.select(pl.col("member").drop_nulls().n_unique().cast(pl.Int64))
     .collect()
-    .to_series()
-    .to_numpy()[0],
+    .item(),
 )
 per_branch = (
     loans

@@ -130,7 +130,8 @@ print(
     landings.select(pl.col("species").unique(maintain_order=True))
     .collect()
     .to_series()
-    .to_numpy(),
+    .to_pandas()
+    .unique(),
 )
 
 status = quota_status(landings, quota).collect().lazy()

@@ -127,8 +127,7 @@ ids = (
     log
     .select(pl.col("reading_id").drop_nulls().n_unique().cast(pl.Int64))
     .collect()
-    .to_series()
-    .to_numpy()[0]
+    .item()
 )
 print(f"{log.select(pl.len()).collect().item()} readings, {ids} distinct ids")
 
@@ -138,8 +137,7 @@ dupes = (
         pl.len().cast(pl.Int64) - pl.col("reading_id").drop_nulls().n_unique().cast(pl.Int64),
     )
     .collect()
-    .to_series()
-    .to_numpy()[0]
+    .item()
 )
 print("readings sent twice by the logger:", dupes)
 log = log.with_columns(furnace=clean_text(pl.col("furnace")))

@@ -178,8 +178,7 @@ print(
         pl.len().cast(pl.Int64) - pl.col("rota_id").drop_nulls().n_unique().cast(pl.Int64),
     )
     .collect()
-    .to_series()
-    .to_numpy()[0],
+    .item(),
 )
 rota = rota.with_columns(keeper=pandas_title(pl.col("keeper").str.strip_chars()))
 rota = rota.with_columns(lock=pl.col("lock").str.strip_chars())

@@ -208,7 +208,8 @@ print(
         no_wage.select(pl.col("herder_key").unique(maintain_order=True))
         .collect()
         .to_series()
-        .to_numpy(),
+        .to_pandas()
+        .unique(),
     ),
 )
 

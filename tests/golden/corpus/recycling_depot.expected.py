@@ -91,7 +91,8 @@ print(
     drops.select(pl.col("material").unique(maintain_order=True))
     .collect()
     .to_series()
-    .to_numpy(),
+    .to_pandas()
+    .unique(),
 )
 print(
     drops.select(pl.col("material"))

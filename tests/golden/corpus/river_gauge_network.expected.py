@@ -228,7 +228,7 @@ checked = (
     .collect()
     .lazy()
 )
-unknown_gauges = checked.filter(pl.col("_merge") == "left_only").select(pl.col("gauge").unique(maintain_order=True)).collect().to_series().to_numpy().tolist()
+unknown_gauges = checked.filter(pl.col("_merge") == "left_only").select(pl.col("gauge").unique(maintain_order=True)).collect().to_series().to_pandas().unique().tolist()
 checked = checked.filter(pl.col("_merge") == "both").drop("_merge")
 checked = checked.with_columns(margin_cm=pl.col("bank_height_cm") - pl.col("level_cm"))
 checked = checked.with_columns(

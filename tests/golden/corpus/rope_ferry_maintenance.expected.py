@@ -471,6 +471,7 @@ print(
         .select(pl.col("part").unique(maintain_order=True))
         .collect()
         .to_series()
-        .to_numpy(),
+        .to_pandas()
+        .unique(),
     ),
 )

@@ -88,8 +88,7 @@ print(
     absent.select(pl.len()).collect().item(),
     served.select(pl.col("pupil_id").drop_nulls().n_unique().cast(pl.Int64))
     .collect()
-    .to_series()
-    .to_numpy()[0],
+    .item(),
 )
 
 per_class = (

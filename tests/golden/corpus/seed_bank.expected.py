@@ -216,6 +216,5 @@ weak = (
 print(
     weak.select(pl.col("accession").drop_nulls().n_unique().cast(pl.Int64))
     .collect()
-    .to_series()
-    .to_numpy()[0],
+    .item(),
 )
