@@ -122,3 +122,51 @@ def test_read_csv_separator_guessed(tmp_path: Path, option: str) -> None:
         p.to_csv("p.csv", index=False)
         """, {"p.txt": b"id;v\n1;2\n2;3\n"})
     _same_outputs(pd_dir, pl_dir, text)
+
+
+# -- read_csv(parse_dates=...) of dates that do not fit the format pandas guesses ------------
+
+@pytest.mark.parametrize("days", [b"05.01.2024\n31.12.2024\n", b"05/01/2024\n31/12/2024\n",
+                                  b"2024-01-05\nsoon\n", b"2024-01-05\n\n2024-02-01\n",
+                                  b"05/01/2024\n06/02/2024\n"])
+def test_read_csv_parse_dates_that_do_not_fit(tmp_path: Path, days: bytes) -> None:
+    # day-first dates whose first day is 12 or less: pandas guesses month first, the second
+    # value does not fit, and read_csv keeps the column as text; the conversion raised
+    lines = days.splitlines()
+    content = b"sailing,day,pax\n" + b"".join(b"S%d,%s,%d\n" % (i, d, i) for i, d in enumerate(lines))
+    text, pd_dir, pl_dir = _run_both(tmp_path, """
+        import pandas as pd
+        d = pd.read_csv("d.csv", parse_dates=["day"])
+        print(d["day"].tolist(), str(d["day"].dtype))
+        d.to_csv("o.csv", index=False)
+        """, {"d.csv": content})
+    _same_outputs(pd_dir, pl_dir, text)
+
+
+# -- to_parquet of a frame with a groupby's keys as its index --------------------------------
+
+def _same_parquet(pd_dir: Path, pl_dir: Path, name: str, text: str) -> None:
+    import pandas as pd
+    expected, actual = pd.read_parquet(pd_dir / name), pd.read_parquet(pl_dir / name)
+    try:
+        pd.testing.assert_frame_equal(expected, actual)
+    except AssertionError as exc:
+        raise AssertionError(f"{name}: {exc}\n--- converted ---\n{text}") from None
+
+
+@pytest.mark.parametrize("expr", [
+    'd.groupby("grove").agg(total=("crates", "sum"))',
+    'd.groupby(["grove", "grade"]).agg(n=("crates", "count"))',
+    'd.groupby("grove")[["crates"]].sum()',
+    'd.groupby("grove", as_index=False)["crates"].sum()',
+])
+def test_to_parquet_stores_the_keys_as_the_index(tmp_path: Path, expr: str) -> None:
+    # pandas stores the keys as the index (pd.read_parquet gives them back as the row labels);
+    # the conversion wrote them as plain columns (a RangeIndex on reading)
+    text, pd_dir, pl_dir = _run_both(tmp_path, f"""
+        import pandas as pd
+        d = pd.read_csv("co.csv")
+        totals = {expr}
+        totals.to_parquet("totals.parquet")
+        """, {"co.csv": b"grove,grade,crates\nNorth,A,10\nSouth,B,4\nNorth,B,7\n"})
+    _same_parquet(pd_dir, pl_dir, "totals.parquet", text)

@@ -48,6 +48,9 @@ class FileSchema(dict[str, str]):
     # pandas guesses a date format from it (read_csv(parse_dates=...))
     first_texts: dict[str, str] | None = None
     first_texts_each: list[dict[str, str]] | None = None  # several files' (see merged)
+    # each text column's values in the first 1000 rows (missing ones left out): whether they all
+    # fit the date format pandas guesses from the first (read_csv keeps the column as text if not)
+    text_heads: dict[str, list[str]] | None = None
     # columns of whole numbers typed float only because a value is missing: pandas parses them
     # as integers, and so does not match them with the numbers of na_values (see read_csv)
     missing_ints: frozenset[str] = frozenset()
@@ -182,7 +185,7 @@ class SchemaReader:
             if padded:
                 found.padded = {name: polars_code(dtype) for name, dtype in padded.items()}  # type: ignore[misc]
             found.blank_lines, found.empty_rows = blank_lines, empty_rows
-            found.first_texts = _first_texts(file, schema, options)
+            found.first_texts, found.text_heads = _first_texts(file, schema, options)
             found.missing_ints = frozenset(missing_ints | padded_ints)
             found.no_rows = _no_rows(file, options)
             found.implicit_index = _implicit_index(file, options)
@@ -233,23 +236,27 @@ def _first_rows(file: Path, head: Path, options: dict[str, Any]) -> bool:
 _NOT_FIRST = {"", "NaT", "nat", "NAT", "nan", "NaN", "NAN", "now", "today"}
 
 
-def _first_texts(file: Path, schema: Any, options: dict[str, Any]) -> dict[str, str]:
-    """The first value of each text column that pandas would guess a date format from."""
+def _first_texts(file: Path, schema: Any, options: dict[str, Any]) \
+        -> tuple[dict[str, str], dict[str, list[str]]]:
+    """The first value of each text column that pandas would guess a date format from, and the
+    column's values in the first 1000 rows."""
     texts = [name for name, dtype in schema.items() if dtype == pl.String]
     if not texts:
-        return {}
+        return {}, {}
     try:
         kwargs = {**scan_kwargs(options), "infer_schema_length": 0}  # all text, no inference
         kwargs.pop("schema_overrides", None)
         head = pl.scan_csv(file, **kwargs).select(texts).head(1000).collect()
     except (pl.exceptions.PolarsError, OSError, ValueError):
-        return {}
+        return {}, {}
     found = {}
+    heads = {}
     for name in texts:
-        values = [v for v in head[name].to_list() if v is not None and v.strip() not in _NOT_FIRST]
+        heads[name] = [v for v in head[name].to_list() if v is not None]
+        values = [v for v in heads[name] if v.strip() not in _NOT_FIRST]
         if values:
             found[name] = values[0]
-    return found
+    return found, heads
 
 
 def _line_ends(file: Path) -> str | None:

@@ -85,14 +85,16 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     not, also in its other spellings in float columns: see _numbers_missing), nrows, skiprows
     (a count).
     Caveats: index_col, header/names, converters, encodings other than UTF-8, a list of
-    skipped rows and keep_default_na=False are TODOs; na_values per column needs --data (or a
+    skipped rows, keep_default_na=False, on_bad_lines="skip"/"warn" (pandas leaves out a row
+    with more fields than the header) and sep=None (pandas guesses the separator) are TODOs; na_values per column needs --data (or a
     dtype= for those columns). With nrows, Polars still infers types from the whole file (0.9).
     Integers beyond int64 beside a negative value or a blank (text in pandas, Int128 in
     Polars) are a TODO when --data shows them.
     parse_dates follows pandas' guess of one format from the first value (05/03/2024 month
     first): with --data made at convert time from the sample and written out (0.9), else made
     at run time by pandas_to_datetime (0.8); a value that does not fit stops the script where
-    pandas leaves the column as text. An empty header is named "Unnamed: n" only when --data shows
+    pandas leaves the column as text, except that a column whose values in --data's first 1000
+    rows do not all fit is left as text, as pandas leaves it (0.9). An empty header is named "Unnamed: n" only when --data shows
     it; a repeated header name is a TODO then.
     """
     known = {"filepath_or_buffer", "sep", "delimiter", "usecols", "dtype", "parse_dates",
@@ -330,9 +332,12 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     if parse_dates:
         if parse_dates is True or not all(isinstance(c, str) for c in parse_dates):
             raise ctx.todo("parse_dates must list column names")
-        exprs = [_parsed_dates(c, schema, ctx) for c in parse_dates]
-        frame = derive(frame, frame.code.method("with_columns", *exprs), same_rows=True,
-                       dtypes=tuple({**dict(frame.dtypes), **{c: "datetime" for c in parse_dates}}.items()))
+        parsed = {c: _parsed_dates(c, schema, ctx) for c in parse_dates}
+        exprs = [e for e in parsed.values() if e is not None]
+        dated = [c for c, e in parsed.items() if e is not None]
+        if exprs:
+            frame = derive(frame, frame.code.method("with_columns", *exprs), same_rows=True,
+                           dtypes=tuple({**dict(frame.dtypes), **{c: "datetime" for c in dated}}.items()))
     if schema is None and ctx.schema_lookup is not None and isinstance(_paths(source), str) \
             and getattr(ctx.schema_lookup, "written_by_script", lambda path: False)(_paths(source)):
         # the script writes this file before it reads it: --data may hold an older copy
@@ -498,10 +503,13 @@ def _const_dtype_dict(call: PandasCall) -> bool:
     return isinstance(value, Opaque) and isinstance(value.const, dict)
 
 
-def _parsed_dates(column: str, schema: Any, ctx: RuleContext) -> Code:
+def _parsed_dates(column: str, schema: Any, ctx: RuleContext) -> Code | None:
     """read_csv(parse_dates=[column]): pandas guesses one format from the column's first value
     and reads every value with it. With --data porter makes the same guess from the sample's
-    first value and writes that format; without, pandas_to_datetime guesses it at run time."""
+    first value and writes that format; without, pandas_to_datetime guesses it at run time.
+    None when --data shows a value that does not fit the format guessed (day-first dates whose
+    first day is 12 or less): pandas' read_csv then keeps the column as text, and so does the
+    scan."""
     each = getattr(schema, "first_texts_each", None) or [getattr(schema, "first_texts", None) or {}]
     firsts = [texts[column] for texts in each if column in texts]
     fmt = None
@@ -513,6 +521,13 @@ def _parsed_dates(column: str, schema: Any, ctx: RuleContext) -> Code:
             warnings.simplefilter("ignore")  # "Parsing dates in %d/%m/%Y format when dayfirst=False"
             formats = {guess_datetime_format(first) for first in firsts}
         fmt = formats.pop() if len(formats) == 1 else None  # the files agree on one format
+    heads = getattr(schema, "text_heads", None) or {}
+    if fmt is not None and column in heads and not _all_fit(heads[column], fmt):
+        ctx.lower(f"parse_dates: a value of {column!r} in the sample does not fit the format "
+                  f"pandas guesses from its first value ({fmt!r}), so pandas' read_csv keeps "
+                  "the column as text and so does the scan; a file whose values all fit would "
+                  "be read as dates by pandas", 0.9)
+        return None
     port = strptime_port(fmt) if fmt is not None else None
     if isinstance(port, Strptime):
         ctx.lower(f"parse_dates: the format pandas guesses from the sample's first value "
@@ -523,6 +538,21 @@ def _parsed_dates(column: str, schema: Any, ctx: RuleContext) -> Code:
     ctx.lower(f"parse_dates: {GUESS_REASON}; a value that does not fit stops the script where "
               "pandas leaves the column as text", 0.8)
     return guessed_parse(emit.col(column), coerce=False)
+
+
+def _all_fit(values: list[str], fmt: str) -> bool:
+    """Whether pandas' to_datetime reads every value with `fmt` (as read_csv's parse_dates
+    does with the format it guessed; it keeps the text when one does not fit)."""
+    import warnings
+
+    import pandas as pd
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        try:
+            pd.to_datetime(pd.Series(values, dtype=object), format=fmt)
+        except (ValueError, TypeError, OverflowError):
+            return False
+    return True
 
 
 def _select_in_file_order(frame: Frame, usecols: list[Any], ctx: RuleContext) -> Frame:
@@ -953,10 +983,9 @@ def _makes_arrays(ctx: RuleContext) -> bool:
 def to_parquet(call: PandasCall, ctx: RuleContext) -> Value:
     """DataFrame.to_parquet -> LazyFrame.sink_parquet.
 
-    Handles: the index columns porter tracks are written as columns.
-    Caveats: pandas also marks them as the index in the file's metadata, and pandas'
-    read_parquet restores them as the row labels; the file Polars writes holds them as plain
-    columns (0.9).
+    Handles: index=False; a frame with the index columns porter tracks (a groupby's keys) is
+    written by pandas, which marks them as the index in the file's metadata (its read_parquet
+    restores them as the row labels; Polars would write plain columns).
     """
     ctx.reject_unknown(call, "path", "index", "engine", "compression", positional=1)
     target = _write_target(call, ctx, "parquet")
@@ -971,9 +1000,16 @@ def to_parquet(call: PandasCall, ctx: RuleContext) -> Value:
                        "file (read_parquet gives them back); Polars writes none: write "
                        "index=False, or reset_index(drop=True) first")
     if frame.index and index is not False:
-        ctx.lower(f"pandas marks {', '.join(frame.index)} as the index in the file's metadata "
-                  "and its read_parquet restores them as the row labels (reset_index() then "
-                  "brings them back as columns); Polars writes them as plain columns", 0.9)
+        # pandas marks the index columns (a groupby's keys) as the index in the file's
+        # metadata, and its read_parquet restores them as the row labels; Polars would write
+        # them as plain columns: pandas writes the file, from the frame with its index put back
+        ctx.handover = True
+        ctx.lower(f"pandas stores {', '.join(frame.index)} as the index in the file (its "
+                  "read_parquet restores them as the row labels): handed over to pandas for "
+                  "the write", 1.0)
+        passed = {name: _plain_argument(call, name) for name in ("index", "engine", "compression")
+                  if call.has(name)}
+        return Scalar(handover.to_pandas(frame).method("to_parquet", target.code, **passed))
     frame = written_index(frame, index is not False)
     kwargs: dict[str, object] = {}
     compression = call.const("compression", None, None)
