@@ -129,3 +129,50 @@ def test_assign_takes_series_computed_before_the_call(tmp_path: Path) -> None:
         print(out.to_string())
         print(out2.to_string())
     """, tmp_path, {"d.csv": "k,a,b\nx,1,2\ny,3,4\n"})
+
+
+# -- E-F25, E-F26, E-F27: Python's power of each value ------------------------------------
+
+POWERS = "k,i,f,j\nA,4,2.5,2\nB,-8,-1.5,3\nC,5,,0\n"
+
+
+def test_whole_number_to_a_negative_power_in_a_lambda(tmp_path: Path) -> None:
+    # Python's 4 ** -1 is 0.25 (pandas writes 0.25, -0.125, 0.2); Polars refused the negative
+    # integer exponent (InvalidOperationError); 2 ** x and r["i"] ** r["j"] give an int or a
+    # float by the exponent's sign
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("d.csv")
+        df["a"] = df["i"].map(lambda x: x ** -1)
+        df["b"] = df["f"].map(lambda x: x ** -2)
+        df["c"] = df["i"].map(lambda x: x ** 2)
+        df["e"] = df["i"].map(lambda x: 2 ** x)
+        df["g"] = df.apply(lambda r: r["i"] ** r["j"], axis=1)
+        df.to_csv("o.csv", index=False)
+        print(df.to_string())
+    """, tmp_path, {"d.csv": POWERS})
+
+
+def test_whole_numbers_to_a_large_power_in_a_lambda(tmp_path: Path) -> None:
+    # Python's 10 ** 20 is exact (pandas writes 100000000000000000000, an object column);
+    # Polars' Int64 wrapped around to 7766279631452241920
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("d.csv")
+        df["big"] = df["n"].map(lambda x: x ** 20)
+        df["n"] = df["n"] + 1
+        df.to_csv("o.csv", index=False)
+        print(df["big"].tolist())
+    """, tmp_path, {"d.csv": "cell,n\nA,10\nB,3\n"})
+
+
+def test_negative_number_to_a_fraction_in_a_lambda(tmp_path: Path) -> None:
+    # Python's (-2.25) ** 0.5 is a complex number (pandas writes (9.18e-17+1.5j)); the
+    # conversion wrote a missing value
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("d.csv")
+        df["root"] = df["depth"].map(lambda x: x ** 0.5)
+        df.to_csv("o.csv", index=False)
+        print(df["root"].tolist())
+    """, tmp_path, {"d.csv": "well,depth\nW1,4.0\nW2,-2.25\n"})

@@ -18,7 +18,7 @@ from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.io import dtype_spelling, polars_dtype
 from porter.rules.io_options import datetime_text, duration_text, float_text
-from porter.rules.ops import MASKED_DTYPES, float32_possible, int64_lit
+from porter.rules.ops import MASKED_DTYPES, PYTHON_ONLY_NUMBERS, float32_possible, int64_lit
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
     mark_float_ints, nullable_mark, set_nullable_ints, with_column_updates,
@@ -152,6 +152,11 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
             # pandas' Interval values have no Polars type (from_pandas keeps an extension
             # column no writer takes): the statement and the frame stay pandas
             raise Unsupported("pandas' interval labels have no Polars type: the frame stays pandas")
+        if any(PYTHON_ONLY_NUMBERS in site.message for site in value.sites):
+            # Python's integers past Int64 or complex numbers (x ** 20, x ** 0.5 in a lambda):
+            # pl.Series refuses them where they occur
+            raise Unsupported(f"pandas' column may hold {PYTHON_ONLY_NUMBERS}: "
+                              + FRAME_STAYS_PANDAS)
         if any(MIXED_COLUMN in site.message for site in value.sites):
             # text put into numbers (fillna, where, combine_first): an object column in
             # pandas, which pl.Series refuses or turns into text

@@ -196,10 +196,10 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
                 or op == "+" and ltype == "duration" and rtype == "datetime":
             dtype = "datetime"  # a date moved by a duration column (pd.to_timedelta(days, unit="D"))
         if op == "**":
+            if column.element:
+                lcode, dtype = _python_power(left, right, lcode, dtype, ctx)
             code = _power(left, right, lcode, rcode, ctx).method("fill_nan", None)
             ctx.lower("a negative base to a fractional power is NaN in both (made missing here)", 0.98)
-            if column.element:
-                _python_power_caveats(left, right, ctx)
     else:
         raise Unsupported(f"operator {op} on columns")
     if _is_str_literal(left) and op == "+":
@@ -260,20 +260,61 @@ def _power(left: Value, right: Value, lcode: Code, rcode: Code, ctx: RuleContext
     return emit.binop(operands[0], "**", operands[1])
 
 
-def _python_power_caveats(left: Value, right: Value, ctx: RuleContext) -> None:
-    """a ** b in a lambda is Python's power of each value, not numpy's of the column."""
-    if value_dtype(right) != "int" and not (isinstance(right, Opaque) and isinstance(right.const, int)
-                                            or isinstance(right, Opaque) and isinstance(right.const, float)
-                                            and right.const.is_integer()) \
-            and value_dtype(left) != "bool" \
-            and not (_number_const(left) and left.const >= 0):  # type: ignore[union-attr]
-        ctx.lower("Python's power of a negative number to a fraction ((-4) ** 0.5) is a complex "
-                  "number, so pandas' column is complex; here it is a missing value", 0.9)
-    if isinstance(right, Column) and value_dtype(right) in ("int", None) \
-            and value_dtype(left) in ("int", None):
-        ctx.lower("Python's power of a whole number to a negative whole number (2 ** -2) is a "
-                  "float (0.25) and pandas' column float; Polars refuses a negative integer "
-                  "exponent and the script fails", 0.9)
+# in the reason of a TODO whose pandas result may hold values no Polars column holds (Python's
+# integers past Int64, complex numbers): a column made of it keeps its frame on pandas
+# (rules/assign.py value_expr)
+PYTHON_ONLY_NUMBERS = "numbers no Polars type holds"
+
+
+def _python_power(left: Value, right: Value, lcode: Code, dtype: str | None,
+                  ctx: RuleContext) -> tuple[Code, str | None]:
+    """a ** b in a lambda (or the script's function) is Python's power of each value, not
+    numpy's of the column: the base's code and the result's dtype, or a TODO.
+
+    A whole number to a negative whole number is float(a) ** b in Python (2 ** -2 is 0.25,
+    a float64 column), which Polars refuses for an integer base: the base is cast to Float64.
+    Python's whole numbers never overflow (10 ** 20 is exact, an object column in pandas)
+    where Polars' Int64 wraps around; a whole-number exponent that is a column gives an int
+    or a float by its sign, and pandas' column int64 or float64 by the data; a negative
+    number to a fraction is a complex number ((-4) ** 0.5), and pandas' column complex."""
+    lkind, rkind = value_dtype(left), value_dtype(right)
+    exponent = right.const if _number_const(right) else None  # type: ignore[union-attr]
+
+    def whole(value: Value, kind: str | None) -> bool:
+        return kind in ("int", "bool") or _number_const(value) and isinstance(value.const, int)  # type: ignore[union-attr]
+
+    if whole(left, lkind) and whole(right, rkind):
+        if rkind == "bool":
+            return lcode, dtype  # an exponent of 0 or 1
+        if not isinstance(exponent, int):
+            raise ctx.todo("a whole number to the power of a column of whole numbers: Python's "
+                           "result is a float where the exponent is negative (2 ** -2 is 0.25) "
+                           "and an int elsewhere, so pandas' column is float64 or int64 by the "
+                           "data; Polars refuses a negative integer exponent")
+        if exponent < 0:
+            return lcode.method("cast", emit.atom("pl.Float64")), "float"
+        if exponent >= 3 and lkind != "bool":
+            raise ctx.todo(f"x ** {exponent} of whole numbers: Python's integers never overflow "
+                           f"(pandas keeps a result past 9.2e18 exactly, in an object column of "
+                           f"{PYTHON_ONLY_NUMBERS}), where Polars' Int64 wraps around")
+        if exponent == 2 and lkind != "bool":
+            ctx.lower("x ** 2 of whole numbers: Python's integers never overflow, where Polars' "
+                      "Int64 wraps around past 9.2e18 (values of 3.04e9 and more)", 0.98)
+        return lcode, dtype
+    fractional = not (isinstance(exponent, (int, float)) and float(exponent).is_integer()) \
+        and rkind not in ("int", "bool")
+    if fractional and lkind != "bool" and not (_number_const(left) and left.const >= 0):  # type: ignore[union-attr]
+        raise ctx.todo("Python's power of a negative number to a fraction ((-4) ** 0.5) is a "
+                       f"complex number, and pandas' column complex ({PYTHON_ONLY_NUMBERS}); "
+                       "Polars gives NaN")
+    if lkind is None and isinstance(exponent, int):
+        if exponent < 0:
+            # a float base is unchanged by the cast; a whole number is what Python computes
+            return lcode.method("cast", emit.atom("pl.Float64")), "float"
+        if exponent >= 2:
+            ctx.lower("the base's type is not known: where it holds whole numbers, Python's "
+                      "power never overflows and Polars' Int64 wraps around past 9.2e18", 0.9)
+    return lcode, dtype
 
 
 _ARITHMETIC = (ast.Add, ast.Sub, ast.Mult, ast.Div)
