@@ -93,3 +93,34 @@ def test_int_window_rows_of_a_missing_key_dropped_is_lowered(line):
         """)
     sites = [s for s in result.sites if s.key == "frame.dropna"]
     assert sites and sites[0].confidence < 1 and "group key is missing" in sites[0].message
+
+
+# -- int columns pandas keeps int (E-F10, E-F16, E-F17) ------------------------------------
+
+FISH = {"d.csv": "tank,fish,n\nT1,3,1\nT2,-1,5\nT1,4,2\nT2,2,3\n"}
+
+
+@pytest.mark.parametrize("line", [
+    'df["prev"] = df["fish"].shift(1, fill_value=0.5)',
+    'df["prev"] = df["fish"].shift(1, fill_value=2.0)',
+    'df["prev"] = df["fish"].shift(-1, fill_value=0)',
+    'df["prev"] = df.groupby("tank")["fish"].shift(1, fill_value=0.5)',
+    'df["prev"] = df.groupby("tank")["fish"].shift(1, fill_value=2.0)',
+    'df["prev"] = df["fish"].interpolate()',
+    'df["prev"] = df["fish"].shift(1).interpolate()',
+    'df["prev"] = df.groupby("tank")["n"].transform(lambda s: s.max() if s.max() > 1 else 0.5)',
+    'df["prev"] = df["n"]; print(df.groupby("tank")["n"].agg(lambda s: s.max() if s.max() > 1 else 0.5).tolist())',
+])
+def test_int_column_kept_int(line, tmp_path):
+    """An int column shifted in with a whole fill (2.0), interpolated without a missing value,
+    or given a float branch no group takes stays int64 in pandas (written 2, not 2.0); a
+    fraction (0.5) makes it float64. The frame then goes to pandas (ngroup), which keeps the
+    column's type as porter states it."""
+    same_text(f"""
+        import pandas as pd
+        df = pd.read_csv("d.csv")
+        {line}
+        df["grp_no"] = df.groupby("tank").ngroup()
+        df.to_csv("o.csv", index=False)
+        print(df["prev"].tolist())
+        """, tmp_path, FISH)

@@ -274,7 +274,10 @@ def test_interpolate_todo(before: str) -> None:
 
 
 def test_interpolate_of_a_column_that_may_be_integer_lowers_confidence() -> None:
-    result = convert(GAPS + 'df["r"] = df["n"].interpolate()\n')
+    # a column of unknown type (no --data); an int64 column known to have no missing value
+    # is left as it is (test_interpolate_matches_pandas: df["n"])
+    result = convert('import pandas as pd\ndf = pd.read_csv("x.csv")\n'
+                     'df["r"] = df["n"].interpolate()\n')
     site = next(s for s in result.sites if s.key == "series.interpolate")
     assert site.confidence == 0.98 and "integer" in site.message
 

@@ -16,7 +16,9 @@ from porter.rules import rule
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
 )
-from porter.translate.values import Column, Frame, Opaque, PandasValue, Scalar, Value
+from porter.translate.values import (
+    NOT_NULLABLE, Column, Frame, Opaque, PandasValue, Scalar, Value,
+)
 
 
 @rule("series.isna", "series.isnull")
@@ -437,6 +439,12 @@ def interpolate(call: PandasCall, ctx: RuleContext) -> Value:
     if column.dtype in ("str", "bool", "datetime", "date", "category", "enum"):
         raise Unsupported(f"interpolating a {column.dtype} column (pandas raises or keeps it "
                           "as objects)")
+    if column.dtype == "int" and column.float_int is None and (
+            column.nullable_int == NOT_NULLABLE
+            or column.nullable_int is None and not ctx.nullable_ints_possible):
+        # numpy's int64 holds no missing value: pandas' interpolate changes nothing and the
+        # column stays int64 (4, 7, 5), where Polars' interpolate makes it float (4.0)
+        return column
     if column.dtype != "float":
         ctx.lower("an integer column without missing values stays integer in pandas; Polars' "
                   "interpolate makes it float (the same values)", 0.98)

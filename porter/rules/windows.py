@@ -50,13 +50,35 @@ def shift(call: PandasCall, ctx: RuleContext) -> Value:
     periods = call.const("periods", 0, 1)
     if not isinstance(periods, int):
         raise Unsupported("a computed number of periods")
-    kwargs = {}
-    if call.has("fill_value"):
-        kwargs["fill_value"] = ctx.expr(call.arg("fill_value"), column.frame)
-    code, dtype = column.code.method("shift", periods, **kwargs), column.dtype
+    kwargs, dtype = _shift_fill(call, column, ctx)
+    code = column.code.method("shift", periods, **kwargs)
     if dtype == "int" and periods != 0 and not kwargs and _plain_int(column, ctx):
         code, dtype = _as_float(code), "float"
     return derived_column(column, code, dtype=dtype)
+
+
+def _shift_fill(call: PandasCall, column: Column, ctx: RuleContext) -> tuple[dict[str, Code], str | None]:
+    """shift's fill_value as Polars' keyword, and the result's type. pandas keeps an int
+    column int64 with a fill that is a whole number (2 or 2.0) and makes it float64 with a
+    fraction (0.5); fill_value=None is no fill."""
+    if not call.has("fill_value"):
+        return {}, column.dtype
+    fill = call.arg("fill_value")
+    if column.dtype == "int" and isinstance(fill, Opaque) and fill.is_const:
+        value = fill.const
+        if value is None:
+            return {}, column.dtype
+        if isinstance(value, float) and value.is_integer():
+            return {"fill_value": emit.lit(int(value))}, "int"
+        if isinstance(value, float):
+            return {"fill_value": emit.lit(value)}, "float"
+        if not (isinstance(value, int) and not isinstance(value, bool)):
+            raise Unsupported(f"fill_value={value!r} on an int column (pandas makes it object)")
+        return {"fill_value": ctx.expr(fill, column.frame)}, "int"
+    if column.dtype == "int":
+        raise Unsupported("a computed fill_value on an int column: pandas keeps int64 for a "
+                          "whole number and makes float64 for a fraction")
+    return {"fill_value": ctx.expr(fill, column.frame)}, column.dtype
 
 
 def _as_float(code: Code) -> Code:
@@ -370,15 +392,27 @@ def group_function(call: PandasCall, grouped: Grouped, name: str, function: Opaq
     if GROUP_FRAME in expr.text or (isinstance(result, Scalar) and result.agg is not None
                                     and result.agg.refs - {name}):
         raise Unsupported("the function reads the group as a frame (a collected value, a filter)")
-    if _has_branches(body) and re.search(FLOAT_BRANCH, expr.text):
-        # pandas makes the result from each group's Python value: int64 when no group takes
-        # the float branch; Polars' branches share one type
-        ctx.lower("pandas' result is int64 when no group takes a float branch of the function "
-                  "(5 where this writes 5.0)", 0.9)
+    _float_branch(body, expr, grouped.frame.dtype(name), ctx)
     if grouped.frame.dtype(name) in ("float", None) and re.search(r"\.(sum|mean|std|var)\(", expr.text):
         ctx.lower("pandas adds a group's values inside a function with numpy's pairwise "
                   "summation, Polars in order: a float result can differ in the last digit", 0.95)
     return expr, dtype
+
+
+def _float_branch(body: cst.BaseExpression, expr: Code, dtype: str | None,
+                  ctx: RuleContext) -> None:
+    """A function with a branch giving a float written in the script (`s.max() if ... else
+    0.5`): pandas makes the result from each group's Python value, int64 when no group takes
+    the float branch (5), float64 when one does; Polars' branches share one type (5.0). The
+    data decides: a TODO unless the column is float (every branch float then)."""
+    if not (_has_branches(body) and re.search(FLOAT_BRANCH, expr.text)):
+        return
+    if dtype != "float":
+        raise Unsupported("a function with a float branch (else 0.5): pandas' result is int64 "
+                          "when no group takes it (5), float64 when one does; a Polars plan "
+                          "fixes the type before it sees the data")
+    ctx.lower("pandas' result is int64 when no group takes a float branch of the function "
+              "(5 where this writes 5.0)", 0.9)
 
 
 def _transform_function(call: PandasCall, grouped: Grouped, column: Column, function: Opaque,
@@ -401,6 +435,7 @@ def _transform_function(call: PandasCall, grouped: Grouped, column: Column, func
     if GROUP_FRAME in expr.text or (result.refs if isinstance(result, Column) else {column.name}) \
             - {column.name}:
         raise Unsupported("the function reads the group as a frame (a collected value, a filter)")
+    _float_branch(body, expr, column.dtype, ctx)
     return _key_missing_float(grouped, derived_column(column, _window(grouped, expr), dtype=dtype),
                               column.nullable_int)
 
@@ -456,6 +491,7 @@ def _reductions_combined(param: str, body: cst.BaseExpression, grouped: Grouped,
         raise Unsupported("the function's reductions are combined in a way porter cannot write "
                           "as an expression")
     expr = ctx.bool_expr(result, grouped.frame)
+    _float_branch(body, expr, column.dtype, ctx)
     return _key_missing_float(grouped, derived_column(
         column, _window(grouped, expr, over=expr), dtype=result.dtype, others=[result]),
         column.nullable_int)
@@ -534,13 +570,11 @@ def group_shift(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("a computed number of periods")
     if call.name == "diff" and (periods < 0 or column.dtype == "bool"):
         raise Unsupported("a negative diff or a diff of booleans")
-    kwargs = {}
-    if call.has("fill_value"):
-        kwargs["fill_value"] = ctx.expr(call.arg("fill_value"), column.frame)
+    kwargs, dtype = _shift_fill(call, column, ctx) if call.name == "shift" else ({}, column.dtype)
     args = [periods] if call.name == "shift" or periods != 1 else []
     expr = column.code.method(call.name, *args, **kwargs)
     # pandas writes fill_value on the rows of a missing key too
-    dtype = column.dtype if call.name != "diff" or column.dtype not in ("datetime", "date") \
+    dtype = dtype if call.name != "diff" or column.dtype not in ("datetime", "date") \
         else "duration" if column.dtype == "datetime" else None
     if dtype == "int" and (call.name == "diff" or periods != 0 and not kwargs) \
             and _plain_int(column, ctx):
