@@ -176,3 +176,19 @@ def test_negative_number_to_a_fraction_in_a_lambda(tmp_path: Path) -> None:
         df.to_csv("o.csv", index=False)
         print(df["root"].tolist())
     """, tmp_path, {"d.csv": "well,depth\nW1,4.0\nW2,-2.25\n"})
+
+
+# -- E-F29: float(s) and int(s) of text in a lambda ---------------------------------------
+
+def test_python_float_and_int_of_text_in_a_lambda(tmp_path: Path) -> None:
+    # Python's float(" 1.5") is 1.5 and float("1_000") 1000.0 (int(" 3") is 3); the strict
+    # cast refused them (InvalidOperationError)
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("d.csv", dtype={"kg": str, "n": str})
+        df["w"] = df["kg"].map(lambda s: float(s))
+        df["i"] = df["n"].map(lambda s: int(s) + 1)
+        df["nan"] = df["kg"].map(lambda s: float(s) if s.strip() != "2" else float("nan"))
+        df.to_csv("o.csv", index=False)
+        print(df.to_string(), df["w"].sum(), df["nan"].isna().sum())
+    """, tmp_path, {"d.csv": 'sack,kg,n\nS1," 1.5"," 3"\nS2,1_000,1_0\nS3,2,-4\n'})

@@ -1036,6 +1036,18 @@ def int_text(column: Column, code: Code, ctx: RuleContext) -> Code:
     return emit.when(emit.binop(code.method("null_count"), ">", 0), as_float_text, as_text)
 
 
+def python_number_text(code: Code) -> Code:
+    """Text as Python's int() and float() read it, ready for Polars' cast: pandas reads each
+    text so, around spaces ("12 ", " 3 ") and with underscores between digits ("1_000" is
+    1000). Two passes take every underscore (the first leaves one only where its left digit
+    ended a match, "1_2_3" -> "12_3"); any other underscore stays, and the cast fails as int()
+    fails."""
+    code = code.attr("str").method("strip_chars")
+    for _ in range(2):
+        code = code.attr("str").method("replace_all", "([0-9])_([0-9])", "${1}${2}")
+    return code
+
+
 def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, str]:
     polars, kind = polars_dtype(target)
     code = column.code.method("fill_null", False) if column.null_is_false else column.code
@@ -1101,13 +1113,7 @@ def cast_expr(column: Column, target: Value, ctx: RuleContext) -> tuple[Code, st
     if kind == "int":
         ctx.lower("pandas raises on missing values when casting to int; Polars keeps them missing", 0.95)
     if kind in ("int", "float") and column.dtype == "str":
-        # pandas reads each text as Python's int()/float() do, around spaces ("12 ", " 3 ")
-        # and with underscores between digits ("1_000" is 1000): two passes take every one
-        # (the first leaves one only where its left digit ended a match, "1_2_3" -> "12_3");
-        # any other underscore stays, and the cast fails as int() fails
-        code = code.attr("str").method("strip_chars")
-        for _ in range(2):
-            code = code.attr("str").method("replace_all", "([0-9])_([0-9])", "${1}${2}")
+        code = python_number_text(code)
     if kind == "category" and column.dtype not in ("str", "category"):
         if column.dtype is not None:
             raise Unsupported(f"a category of {column.dtype} values: Polars' Categorical holds "

@@ -427,8 +427,20 @@ def element_cast(call: PandasCall, ctx: RuleContext) -> Value:
     target = {"int": "pl.Int64", "float": "pl.Float64"}[call.name]
     if call.name == "int":
         ctx.lower("int() of a missing value raises in pandas; Polars keeps it missing", 0.95)
-    return replace(_value(element, element.code.method("cast", emit.atom(target)), dtype=call.name),
-                   python_int=call.name == "int")
+    code = element.code
+    if element.dtype == "str":
+        # Python's int() and float() read " 1.5" and "1_000" (Polars' cast refuses them); a
+        # text "nan" is NaN, missing in pandas
+        from porter.rules.assign import python_number_text
+        code = python_number_text(code).method("cast", emit.atom(target))
+        if call.name == "float":
+            code = code.method("fill_nan", None)
+    else:
+        if element.dtype is None:
+            ctx.lower(f"the value's type is not known: where it is text, Python's {call.name}() "
+                      "reads \" 1.5\" and \"1_000\", which Polars' cast refuses", 0.9)
+        code = code.method("cast", emit.atom(target))
+    return replace(_value(element, code, dtype=call.name), python_int=call.name == "int")
 
 
 @rule("element.round", "element.abs")
