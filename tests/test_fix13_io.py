@@ -170,3 +170,23 @@ def test_to_parquet_stores_the_keys_as_the_index(tmp_path: Path, expr: str) -> N
         totals.to_parquet("totals.parquet")
         """, {"co.csv": b"grove,grade,crates\nNorth,A,10\nSouth,B,4\nNorth,B,7\n"})
     _same_parquet(pd_dir, pl_dir, "totals.parquet", text)
+
+
+# -- to_csv(na_rep=...) of an empty text -----------------------------------------------------
+
+@pytest.mark.parametrize("write", [
+    'd.to_csv("o.csv", index=False, na_rep="NA")',
+    'd.to_csv("o.csv", index=False, na_rep="-", sep=";")',
+    'd.groupby("code").agg(n=("jar", "count")).to_csv("o.csv", na_rep="NA")',
+    'd[["jar", "n"]].to_csv("o.csv", index=False, na_rep="NA")',
+])
+def test_to_csv_na_rep_writes_an_empty_text_as_an_empty_field(tmp_path: Path, write: str) -> None:
+    # pandas writes "" as an empty field and a missing value as na_rep; Polars' writer
+    # quoted the empty text ("")
+    text, pd_dir, pl_dir = _run_both(tmp_path, f"""
+        import pandas as pd
+        d = pd.read_csv("d.csv")
+        d["rest"] = d["code"].str.replace("x", "")
+        {write}
+        """, {"d.csv": b"jar,code,n\nJ1,x,1\nJ2,,\nJ3,xy,3\n"})
+    _same_outputs(pd_dir, pl_dir, text)

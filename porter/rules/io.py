@@ -652,8 +652,8 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     columns; encoding="utf-8-sig" (the byte-order mark first: include_bom), other encodings
     than UTF-8 are TODOs; gzip and zstd compression, given or inferred from the name as pandas
     infers it (bz2, zip, xz and tar are TODOs: Polars' sink does not write them); an empty
-    text as an empty field, as pandas writes it (Polars quotes it; with na_rep given it still
-    does: 0.9); columns of lists of text, numbers or True/False as pandas writes str(list)
+    text as an empty field, as pandas writes it (Polars quotes it; with na_rep given beside
+    text columns pandas writes the file, as Polars' writer has one text for both); columns of lists of text, numbers or True/False as pandas writes str(list)
     (numpy arrays, which pandas writes [1 2], are lists in Polars: 0.9 where the script may
     make them).
     Caveats: booleans and datetimes are written as pandas writes them (True/False, no `T`,
@@ -701,6 +701,18 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
                   "handed over to pandas for the write", 1.0)
         passed = {name: _plain_argument(call, name) for name in HANDED_OPTIONS if call.has(name)}
         return Scalar(handover.to_pandas(frame).method("to_csv", target.code, **passed))
+    na_rep = call.const("na_rep", None, "", kinds=(str,))
+    if na_rep and ({t for _, t in frame.dtypes} & {"str", "category"} or frame.columns is None
+                   or len(frame.dtypes) != len(frame.columns)):
+        # pandas writes an empty text as an empty field and a missing value as na_rep; Polars'
+        # writer quotes an empty text ("") to tell it from a missing one, and writes one
+        # null_value for both: pandas writes the file (with every option it was given)
+        ctx.handover = True
+        ctx.lower(f"na_rep={na_rep!r} beside text columns: pandas writes an empty text as an "
+                  "empty field, Polars' writer as \"\": handed over to pandas for the write", 1.0)
+        passed = {name: _plain_argument(call, name) for name in (*HANDED_OPTIONS, "index")
+                  if call.has(name)}
+        return Scalar(handover.to_pandas(frame).method("to_csv", target.code, **passed))
     frame = written_index(frame, bool(index))
     kwargs: dict[str, object] = {}
     sep = call.const("sep", None, ",")
@@ -709,7 +721,6 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     header = call.const("header", None, True, kinds=(bool, list, tuple))
     if header is False:
         kwargs["include_header"] = False
-    na_rep = call.const("na_rep", None, "", kinds=(str,))
     if na_rep:
         kwargs["null_value"] = na_rep
     kwargs.update(_sink_compression(call, target, ctx))
@@ -731,15 +742,12 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
         frame = derive(frame, frame.code.method("with_columns", emit.atom(CSV_ZONED_DATETIMES_CONSTANT)),
                        same_rows=True)
     if kinds & {"str", "category"} or frame.columns is None or len(frame.dtypes) != len(frame.columns):
-        if not na_rep:
-            # pandas writes an empty text as an empty field, as it writes a missing value;
-            # Polars quotes it ("") to tell it from a missing one. Categories are written as
-            # their text (an Enum without "" among them would refuse the replace)
-            text.append(emit.atom("pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)")
-                        .method("cast", emit.atom("pl.String")).method("replace", "", None))
-        else:
-            ctx.lower(f"na_rep={na_rep!r}: pandas writes an empty text as an empty field, "
-                      "Polars' writer as \"\"", 0.9)
+        # pandas writes an empty text as an empty field, as it writes a missing value;
+        # Polars quotes it ("") to tell it from a missing one. Categories are written as
+        # their text (an Enum without "" among them would refuse the replace). (With na_rep
+        # the write is pandas', above)
+        text.append(emit.atom("pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)")
+                    .method("cast", emit.atom("pl.String")).method("replace", "", None))
     if text:
         frame = derive(frame, frame.code.method("with_columns", *text), same_rows=True)
     code = frame.code
