@@ -120,3 +120,14 @@ def test_nullable_text_and_true_false_values_are_flagged(tmp_path):
                       (7, "series.tolist")):
         site = sites[(line, key)]
         assert site.confidence <= 0.9 and "<NA>" in site.message, site
+
+
+def test_value_counts_keys_of_unknown_type_keep_nan(tmp_path):
+    same_text("""
+        import pandas as pd
+        a = pd.read_csv("t.csv")
+        a.to_csv("tmp.csv", index=False)
+        s = pd.read_csv("tmp.csv")
+        print(s["ok"].value_counts(dropna=False).to_dict())
+        print(s["sailing"].value_counts(dropna=False).to_dict())
+    """, tmp_path, {"t.csv": "sailing,ok\nS1,True\n,\nS3,False\nS1,True\n"})

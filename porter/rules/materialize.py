@@ -168,8 +168,10 @@ def series_to_dict(call: PandasCall, ctx: RuleContext) -> Value:
             frame.dtype(key), column.dtype) else code.method("to_pandas")
         if column.nullable_int and column.dtype == "int":  # pandas' nullable integers: 1, None
             code = code.method("astype", {name: column.nullable_int})
-        if frame.dtype(key) == "bool":
-            # a missing True/False key is nan in pandas (an object column), None from Polars
+        if frame.dtype(key) in ("bool", None):
+            # a missing True/False key is nan in pandas (an object column), None from Polars;
+            # a key of unknown type may be one (nan fills nothing else: text, numbers, dates
+            # and categories are missing as nan or NaT already)
             code = code.method("fillna", {key: emit.atom('float("nan")')})
         code = code.method("set_index", key).index(name).method("to_dict")
     elif not frame.index and frame.labels_intact:
