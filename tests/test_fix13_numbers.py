@@ -124,3 +124,27 @@ def test_int_column_kept_int(line, tmp_path):
         df.to_csv("o.csv", index=False)
         print(df["prev"].tolist())
         """, tmp_path, FISH)
+
+
+# -- the median of an even count: (a + b) / 2, as pandas ------------------------------------
+
+KG = {"d.csv": "hive,kg,n\nN,0.7,1\nN,0.1,2\nS,0.5,4\nS,,7\nN,,3\nS,1e16,5\nS,1,6\n"}
+
+
+@pytest.mark.parametrize("line", [
+    'print(df["kg"].head(2).median(), df["n"].median(), df["kg"].median())',
+    'print(df.groupby("hive")["kg"].median().tolist(), df.groupby("hive")["n"].median().tolist())',
+    'print(df.groupby("hive")["kg"].transform("median").tolist())',
+    'print(df.groupby("hive").agg(m=("kg", "median")).values.tolist())',
+    'print(df["kg"].rolling(2).median().tolist(), df["kg"].rolling(4, min_periods=1).median().tolist())',
+    'print(df["kg"].rolling(3, center=True, min_periods=2).median().tolist())',
+    'print(df.pivot_table(index="hive", columns="n", values="kg", aggfunc="median").values.tolist())',
+])
+def test_median_of_an_even_count(line, tmp_path):
+    """pandas gives (0.7 + 0.1) / 2 = 0.39999999999999997 and (1e16 + 1) / 2 = 5e15, where
+    Polars' median gives 0.4 and 5000000000000001.0."""
+    same_text(f"""
+        import pandas as pd
+        df = pd.read_csv("d.csv")
+        {line}
+        """, tmp_path, KG)

@@ -48,7 +48,8 @@ PORTS = [
     pytest.param('r = df["v"].expanding().sum()', 'pl.col("v").rolling_sum(2 ** 31 - 1, min_samples=1)',
                  id="expanding sum over a window as long as the column"),
     pytest.param('r = df["v"].rolling(3, min_periods=2).apply(lambda w: abs(w[-1] - np.nanmedian(w)), raw=True)',
-                 '(pl.col("v") - pl.col("v").rolling_median(3, min_samples=2)).fill_nan(None).abs()',
+                 '(pl.col("v") - (pl.col("v").rolling_quantile(0.5, "lower", 3, min_samples=2)'
+                 ' + pl.col("v").rolling_quantile(0.5, "higher", 3, min_samples=2)) / 2)',
                  id="apply: newest value from the window's median"),
     pytest.param('r = df["v"].rolling(3, min_periods=2).apply(lambda w: w[-1] * 2, raw=True)',
                  'pl.when(pl.col("v").is_not_null().cast(pl.Int64).rolling_sum(3, min_samples=1) >= 2)'

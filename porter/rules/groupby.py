@@ -60,6 +60,14 @@ def pandas_group_mean(x):
 '''
 
 
+def pandas_median(column: Code) -> Code:
+    """The median of numbers as pandas (and numpy) compute it: the middle value, or the two
+    middle ones added and halved, (a + b) / 2 (0.39999999999999997 for 0.7 and 0.1), where
+    Polars' median gives 0.4. Missing values skipped; of none, missing."""
+    return emit.binop(emit.binop(column.method("quantile", 0.5, "lower"), "+",
+                                 column.method("quantile", 0.5, "higher")), "/", 2)
+
+
 def agg_expr(column: Code, how: str, dtype: str | None = None, *, float32: bool = False) -> Code:
     """One pandas aggregation as a Polars expression, with pandas' treatment of missing values.
 
@@ -104,7 +112,9 @@ def agg_expr(column: Code, how: str, dtype: str | None = None, *, float32: bool 
         # np.median reads the group's values: one missing value makes the median NaN
         if dtype not in ("int", "float"):
             raise Unsupported("np.median of a column not known to be numbers")
-        return emit.when(emit.binop(column.method("null_count"), "==", 0), column.method("median"))
+        return emit.when(emit.binop(column.method("null_count"), "==", 0), pandas_median(column))
+    if how == "median" and dtype in ("int", "float"):
+        return pandas_median(column)
     if how in ("sum", "mean", "median", "min", "max", "std", "var"):
         return column.method(how)
     if how in ("any", "all"):
@@ -720,6 +730,8 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         # pandas joins the texts (missing ones skipped); of no text at all it gives 0
         ctx.lower("the sum of no text at all is 0 in pandas and \"\" here", 0.98)
         expr = agg_expr(code, how, "str")
+    elif how == "median" and column.dtype in ("int", "float"):
+        expr = pandas_median(code)  # (a + b) / 2 for an even count, as pandas
     else:
         expr = code.method(how)
     if how in ("min", "max") and column.dtype in ("datetime", "str"):

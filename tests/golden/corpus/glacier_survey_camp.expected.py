@@ -303,7 +303,7 @@ def main():
     readings = readings.with_columns(
         jump=(
             pl.col("exposed_cm").cast(pl.Float64).replace([float("inf"), float("-inf")], None)
-            - pl.col("exposed_cm").cast(pl.Float64).replace([float("inf"), float("-inf")], None).rolling_median(3, min_samples=2)
+            - (pl.col("exposed_cm").cast(pl.Float64).replace([float("inf"), float("-inf")], None).rolling_quantile(0.5, "lower", 3, min_samples=2) + pl.col("exposed_cm").cast(pl.Float64).replace([float("inf"), float("-inf")], None).rolling_quantile(0.5, "higher", 3, min_samples=2)) / 2
         )
         .fill_nan(None)
         .abs(),
