@@ -148,3 +148,22 @@ def test_median_of_an_even_count(line, tmp_path):
         df = pd.read_csv("d.csv")
         {line}
         """, tmp_path, KG)
+
+
+# -- a grouped running sum of floats (E-F11) ------------------------------------------------
+
+@pytest.mark.parametrize("line", [
+    'df["run"] = df.groupby("stall")["fee"].cumsum()',
+    'df["run"] = df.groupby("stall")["fee"].transform("cumsum")',
+])
+def test_grouped_float_cumsum_says_pandas_compensates(line):
+    """pandas' grouped cumsum is Kahan-compensated (ten 0.1s: 1.0), Polars' cum_sum is not
+    (0.9999999999999999): no Polars expression follows it, so the site says so."""
+    result = convert(f"""
+        import pandas as pd
+        df = pd.DataFrame({{"stall": ["pear"] * 10, "fee": [0.1] * 10}})
+        {line}
+        """)
+    sites = [s for s in result.sites if s.key.startswith("groupby.")
+             and s.key.endswith(("cumsum", "transform"))]
+    assert sites and sites[0].confidence <= 0.95 and "Kahan" in sites[0].message
