@@ -190,3 +190,20 @@ def test_to_csv_na_rep_writes_an_empty_text_as_an_empty_field(tmp_path: Path, wr
         {write}
         """, {"d.csv": b"jar,code,n\nJ1,x,1\nJ2,,\nJ3,xy,3\n"})
     _same_outputs(pd_dir, pl_dir, text)
+
+
+# -- a CSV of a header only (an empty monthly export) ----------------------------------------
+
+@pytest.mark.parametrize("use", [
+    'print(e["trips"].sum(), e["trips"].max())\nprint(f"total trips in March: {e[\'trips\'].sum()}")',
+    'j = pd.read_csv("jan.csv")\nx = pd.concat([e, j], ignore_index=True)\n'
+    'print(x.select_dtypes("number").columns.tolist())\nx.describe().to_csv("desc.csv")',
+])
+def test_read_csv_of_a_header_only(tmp_path: Path, use: str) -> None:
+    # pandas reads every column of such a file as object: a sum is 0 and max NaN (the
+    # conversion gave nan and None), a concat makes the other frame's columns object
+    # (the conversion kept int and bool: select_dtypes and describe differed)
+    text, pd_dir, pl_dir = _run_both(tmp_path, "import pandas as pd\ne = pd.read_csv(\"mar.csv\")\n" + use + "\n",
+                                     {"mar.csv": b"vessel,trips,late\n",
+                                      "jan.csv": b"vessel,trips,late\nAurora,3,True\nBrine,5,False\n"})
+    _same_outputs(pd_dir, pl_dir, text)

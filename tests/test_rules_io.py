@@ -450,7 +450,6 @@ PER_COLUMN = [
                  id="parse_dates after the tokens"),
     pytest.param('pd.read_csv("tallies.csv", na_values={"count": "comp"}, dtype={"note": str})',
                  id="with dtype for another column"),
-    pytest.param('pd.read_csv("header_only.csv", na_values={"count": "comp"})', id="no rows"),
     pytest.param('pd.read_csv("tallies.csv", na_values={"count": "comp"})["count"].sum()',
                  id="the numbers add up"),
 ]

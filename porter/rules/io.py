@@ -21,7 +21,7 @@ from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_DURATIONS_CONST
                                      POLARS_CSV_COMPRESSION, compression_of, is_number, is_url,
                                      na_value_numbers, na_value_texts,
                                      written_compression)
-from porter.analysis.schema import PADDING, FileSchema
+from porter.analysis.schema import PADDING
 from porter.rules.datetimes import GUESS_REASON, Strptime, formatted_parse, guessed_parse, strptime_port
 from porter.rules.strings import LIST_STR, list_repr
 from porter.translate import handover
@@ -232,16 +232,13 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                        "Int128, which does not go to numpy or pandas; the read stays pandas'")
     if getattr(schema, "no_rows", False):
         # the types read from a file of a header only say nothing (every column is text to
-        # Polars); pandas reads such columns as object: a sum is 0 and max/mean NaN there, text
-        # here (a sum or a mean fails). The types of a file with rows are inferred at run time.
-        ctx.lower("the --data file has a header and no rows: pandas reads every column of "
-                  "such a file as object (a sum is 0, max and mean NaN, arithmetic works), "
-                  "porter as columns of no type when it still has no rows (a concat gives them "
-                  "the other frames' types, as pandas does; a sum or max of the empty frame is "
-                  "missing); porter does not know the types of a file with rows, Polars infers "
-                  "them when it reads one", 0.7)
-        schema = FileSchema({c: "other" for c in schema})  # type: ignore[union-attr]
-        schema.no_rows = True
+        # Polars); pandas reads such columns as object: a sum is 0 and max/mean NaN, a concat
+        # with it makes the other frames' columns object (select_dtypes, describe, mean
+        # differ). Columns of no type (pl.Null) gave a missing sum and kept int types: the
+        # read stays pandas'
+        raise ctx.todo("the --data file has a header and no rows: pandas reads every column "
+                       "as object (a sum is 0, max and mean NaN, a concat with it makes the "
+                       "other frames' columns object); Polars has no such columns")
     exact = getattr(schema, "polars", None)
     if exact and "" not in exact:
         # --data gave the file: the scan is told the types porter read (inferring them over
@@ -301,18 +298,6 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
             exprs.append(expr.method("replace", numbers, None) if numbers else expr)
             dtypes[column] = kind
         code = code.method("with_columns", *exprs)
-    if getattr(schema, "no_rows", False):
-        # pandas reads the columns of a header-only file as empty object columns, which take
-        # the types of the frames they are concatenated with; Polars' text would make every
-        # column text (a sum after the concat fails). Columns of no type (pl.Null) do as
-        # pandas' do, when the file still has no rows as the script runs
-        dated = call.const("parse_dates", None, None, kinds=(bool, list, tuple))
-        untyped = [c for c in schema if c not in overrides  # type: ignore[union-attr]
-                   and not (isinstance(dated, (list, tuple)) and c in dated)]
-        if untyped:
-            cast = emit.atom("pl.all()") if len(untyped) == len(schema) else emit.call("pl.col", *untyped)  # type: ignore[arg-type]
-            empty = emit.atom("f").method("with_columns", cast.method("cast", emit.atom("pl.Null")))
-            code = emit.call(f"(lambda f: {empty.text} if f.head(1).collect().is_empty() else f)", code)
     columns = tuple(schema) if schema and not getattr(schema, "partial", False) else None
     for column, kind in (schema or {}).items():
         if kind != "other":
