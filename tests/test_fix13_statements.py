@@ -192,3 +192,24 @@ def test_python_float_and_int_of_text_in_a_lambda(tmp_path: Path) -> None:
         df.to_csv("o.csv", index=False)
         print(df.to_string(), df["w"].sum(), df["nan"].isna().sum())
     """, tmp_path, {"d.csv": 'sack,kg,n\nS1," 1.5"," 3"\nS2,1_000,1_0\nS3,2,-4\n'})
+
+
+# -- E-F03: an f-string that formats each value, in a branch ------------------------------
+
+def test_fstring_with_a_format_spec_in_a_branch(tmp_path: Path) -> None:
+    # pandas writes 007, 012, -; the f-string was kept as written and formatted the whole
+    # collected Series once (TypeError: unsupported format string passed to Series.__format__)
+    same_text("""
+        import pandas as pd
+        def tag(x):
+            if x > 5:
+                return f"{x:03d}"
+            return "-"
+        df = pd.read_csv("d.csv")
+        df["tag"] = df["n"].map(lambda x: f"{x:03d}" if x > 5 else "-")
+        df["t"] = df["n"].apply(tag)
+        df["r"] = df["s"].map(lambda s: f"<{s!r}>" if s != "B" else "-")
+        df["row"] = df.apply(lambda r: f"{r['bin']}{r['n']:>3}" if r["n"] > 5 else r["bin"], axis=1)
+        df.to_csv("o.csv", index=False)
+        print(df.to_string())
+    """, tmp_path, {"d.csv": "bin,n,s\nA,7,ab\nB,12,cd\nC,3,B\n"})

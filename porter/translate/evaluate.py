@@ -304,6 +304,13 @@ class Evaluator:
             assert isinstance(part, cst.FormattedStringExpression)
             value = self.eval(part.expression)
             if part.format_spec is not None or part.conversion not in (None, "s") or part.equal:
+                if isinstance(value, Column) and value.element:
+                    # Python formats each value of the column (f"{x:03d}", f"{s!r}"): kept as
+                    # written it would format the whole Series once
+                    return self.todo("element.format", PandasCall(value, "format", (), {}, node),
+                                     node, "an f-string that formats a value with a format spec, "
+                                     "!r or = (Python's formatting of each value has no "
+                                     "expression form)")
                 return self.generic(node)
             if isinstance(value, Opaque) and isinstance(value.const, (str, int)) \
                     and not isinstance(value.const, bool):
