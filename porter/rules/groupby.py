@@ -1828,16 +1828,28 @@ def groupby_apply(call: PandasCall, ctx: RuleContext) -> Value:
     `a / b if b > 0 else np.nan`; pandas' types: every column Float64 when one value is always
     a float (12 becomes 12.0), Int64 when all are ints; one value gives an unnamed Series;
     missing keys dropped, keys sorted, sort=False, dropna=False, as_index=False.
+    g["col"].apply(f) with f reducing the group's Series to one value is g["col"].agg(f)
+    (pandas calls f on each group's Series either way).
     Caveats: loops, printing, returning a frame, changing the group, text, boolean or date
     values, an int that is NaN for some groups only (the max of no rows: pandas' types then
-    depend on the data), a Series key named like a group key and SeriesGroupBy.apply are
-    TODOs; an empty frame gives pandas' input columns (f is never called) (0.95).
+    depend on the data), a Series key named like a group key and g["col"].apply(f) with f
+    giving a Series are TODOs; an empty frame gives pandas' input columns (f is never called) (0.95).
     """
     grouped = grouped_of(call)
     ctx.reject_unknown(call, "func", "include_groups", positional=1)
     if call.const("include_groups", None, False) is not False:
         raise ctx.todo("include_groups=True (pandas 3 raises ValueError)")
     if grouped.selection is not None:
+        # g["kg"].apply(f) calls f on each group's Series, as g["kg"].agg(f) does: a function
+        # that reduces it to one value (s.ewm(span=3).mean().iloc[-1], s.max() - s.min()) is
+        # that aggregation
+        function = call.args[0] if call.args else call.kwargs.get("func")
+        if grouped.single and len(call.args) + len(call.kwargs) == 1 and _is_function(function):
+            forward = PandasCall(call.receiver, "agg", (function,), {}, call.node)
+            try:
+                return agg(forward, ctx)
+            except Unsupported as exc:
+                raise ctx.todo(f"apply on a selected column: {exc.reason}") from None
         raise ctx.todo("apply on selected columns: write the function as agg() of the column")
     param, body = _applied_body(call, ctx)
     reader = _BodyReader(param, grouped, ctx)
