@@ -1868,7 +1868,7 @@ def _root_and_path(node: cst.BaseExpression) -> tuple[str | None, str]:
 
 def _column_targets(stmt: cst.BaseSmallStatement) -> list[cst.Subscript] | None:
     """The targets of `df["a"], df["b"] = x, y` (as many values, written out) or of
-    `df["a"] = df["b"] = x`: subscripts of one name, which Engine.set_columns sets in one
+    `df["a"] = df["b"] = x`: subscripts of one name, which _Walker.set_columns sets in one
     step; None for any other statement."""
     if not isinstance(stmt, cst.Assign):
         return None
