@@ -57,10 +57,12 @@ def test_lists_match_pandas(expr: str) -> None:
     _same_list(run(source)["result"], run(convert(source).converted_text)["result"])
 
 
-def test_values_of_unknown_type_are_lowered() -> None:
+def test_values_of_unknown_type_are_pandas_own() -> None:
+    # a missing text or True/False of a column of unknown type is nan, as in pandas: the
+    # values come through to_pandas() (test_text_values_hold_nan_as_in_pandas runs them)
     result = convert('import pandas as pd\ndf = pd.read_csv("x.csv")\nresult = df["k"].tolist()\n')
     site = next(s for s in result.sites if s.key == "series.tolist")
-    assert site.confidence == 0.95 and "None" in site.message
+    assert site.confidence == 1.0 and "nan" in site.message
 
 
 @pytest.mark.parametrize("expr", [
