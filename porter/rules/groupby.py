@@ -55,8 +55,7 @@ GROUP_MEAN_DEFINITION = '''\
 def pandas_group_mean(x):
     """x.mean() of floats in a group_by or a window, as pandas' group mean computes it: the
     sum added as pandas_group_sum adds it, over the count; missing where there is no value."""
-    whole = (x * 1048576.0).round() / 1048576.0
-    return ((whole.sum() + (x - whole).fill_nan(0.0).sum()) / x.count()).fill_nan(None)
+    return (pandas_group_sum(x) / x.count()).fill_nan(None)
 '''
 
 

@@ -62,6 +62,8 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
     used but the conversion no longer does (np.where became pl.when): importing numpy costs
     time and memory. An import the original did not use either stays as the user wrote it."""
     used = names_used(module)
+    if GROUP_MEAN_FUNCTION in used:
+        used.add(GROUP_SUM_FUNCTION)  # the mean's definition calls it
     needs_polars = "pl" in used and not facts.has_polars_as_pl
     pandas_names = {n for n, q in facts.names.items() if q == "pandas" or q.startswith("pandas.")}
     unused = pandas_names - used

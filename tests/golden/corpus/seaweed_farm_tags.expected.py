@@ -16,8 +16,16 @@ PANDAS_NA_VALUES = [
 def pandas_group_mean(x):
     """x.mean() of floats in a group_by or a window, as pandas' group mean computes it: the
     sum added as pandas_group_sum adds it, over the count; missing where there is no value."""
+    return (pandas_group_sum(x) / x.count()).fill_nan(None)
+
+
+def pandas_group_sum(x):
+    """x.sum() of floats in a group_by or a window, as pandas' group sum adds them: exactly,
+    rounded once (Polars' own sum can end a unit in the last digit away, 212.40000000000003
+    for 212.4, and round(2) of a sum on a half cent then gives the other cent). Each value
+    is cut into a multiple of 2**-20, which add up without error, and the small rest."""
     whole = (x * 1048576.0).round() / 1048576.0
-    return ((whole.sum() + (x - whole).fill_nan(0.0).sum()) / x.count()).fill_nan(None)
+    return whole.sum() + (x - whole).fill_nan(0.0).sum()
 
 
 def pandas_upper(text):
