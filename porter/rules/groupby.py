@@ -739,7 +739,7 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         # max - min failed); text as is, NaN for no text
         # day_name(), quarter and the like are written with the datetime's own (evaluate.py),
         # which a Timestamp has too
-        return _pandas_scalar(column, expr, "datetime" if column.dtype == "datetime" else None)
+        return pandas_scalar(column, expr, "datetime" if column.dtype == "datetime" else None)
     if column.float_int is not None and column.dtype == "int" and how in ("sum", "min", "max"):
         return _float_int_reduction(column, code, expr)
     if how == "sum" and column.dtype == "float" and not column.element:
@@ -832,10 +832,10 @@ def _unknown_type_extreme(column: Column, how: str, expr: Code, ctx: RuleContext
     np.int64 / np.float64 for numbers, a pd.Timestamp for a date (NaT for none), text as is."""
     ctx.lower(f"the {how} of a True/False column of unknown type with no values is NaN in "
               "pandas and None here", 0.98)
-    return _pandas_scalar(column, expr)
+    return pandas_scalar(column, expr)
 
 
-def _pandas_scalar(column: Column, expr: Code, pytype: str | None = None) -> Scalar:
+def pandas_scalar(column: Column, expr: Code, pytype: str | None = None) -> Scalar:
     """The value of `expr` (one row) as pandas gives it: collected and read through
     to_pandas() (NaN, NaT, a Timestamp, numpy numbers)."""
     value = column.frame.code.method("select", expr).method("collect").method(

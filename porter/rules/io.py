@@ -540,6 +540,17 @@ def _all_fit(values: list[str], fmt: str) -> bool:
     return True
 
 
+def _pandas_writes(frame: Frame, call: PandasCall, target: Value, ctx: RuleContext,
+                   reason: str, also: tuple[str, ...] = ()) -> Scalar:
+    """to_csv written by pandas (a frame handed over once, at the write): pandas writes the
+    file itself, so every option it was given goes along (columns= is a select already)."""
+    ctx.handover = True
+    ctx.lower(reason, 1.0)
+    passed = {name: _plain_argument(call, name) for name in (*HANDED_OPTIONS, *also)
+              if call.has(name)}
+    return Scalar(handover.to_pandas(frame).method("to_csv", target.code, **passed))
+
+
 def _select_in_file_order(frame: Frame, usecols: list[Any], ctx: RuleContext) -> Frame:
     """pandas keeps the file's column order whatever the order of `usecols`."""
     if not all(isinstance(c, str) for c in usecols):
@@ -670,34 +681,27 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     if index and not frame.index:
         if not frame.labels_intact:
             raise ctx.todo("index=True writes pandas' row labels, which are no longer 0..n-1 here")
-        ctx.handover = True
-        ctx.lower("index=True writes the row labels: handed over to pandas for the write", 1.0)
-        # pandas writes the file itself, so every option it was given goes along (columns=
-        # is the select above)
-        passed = {name: _plain_argument(call, name) for name in HANDED_OPTIONS if call.has(name)}
-        return Scalar(handover.to_pandas(frame).method("to_csv", target.code, **passed))
+        return _pandas_writes(frame, call, target, ctx,
+                              "index=True writes the row labels: handed over to pandas for the "
+                              "write")
     if index and frame.index_unnamed and len(frame.index) == 1 \
             and call.const("header", None, True, kinds=(bool, list, tuple)) is not False:
         # pandas writes an unnamed index (describe's statistics) under an empty header
         # (",a"); Polars' writer quotes an empty column name ('"",a'): pandas writes the file
         # (a table of a few rows)
-        ctx.handover = True
-        ctx.lower("the unnamed index is written under an empty header, which Polars quotes: "
-                  "handed over to pandas for the write", 1.0)
-        passed = {name: _plain_argument(call, name) for name in HANDED_OPTIONS if call.has(name)}
-        return Scalar(handover.to_pandas(frame).method("to_csv", target.code, **passed))
+        return _pandas_writes(frame, call, target, ctx,
+                              "the unnamed index is written under an empty header, which Polars "
+                              "quotes: handed over to pandas for the write")
     na_rep = call.const("na_rep", None, "", kinds=(str,))
     if na_rep and ({t for _, t in frame.dtypes} & {"str", "category"} or frame.columns is None
                    or len(frame.dtypes) != len(frame.columns)):
         # pandas writes an empty text as an empty field and a missing value as na_rep; Polars'
         # writer quotes an empty text ("") to tell it from a missing one, and writes one
         # null_value for both: pandas writes the file (with every option it was given)
-        ctx.handover = True
-        ctx.lower(f"na_rep={na_rep!r} beside text columns: pandas writes an empty text as an "
-                  "empty field, Polars' writer as \"\": handed over to pandas for the write", 1.0)
-        passed = {name: _plain_argument(call, name) for name in (*HANDED_OPTIONS, "index")
-                  if call.has(name)}
-        return Scalar(handover.to_pandas(frame).method("to_csv", target.code, **passed))
+        return _pandas_writes(frame, call, target, ctx,
+                              f"na_rep={na_rep!r} beside text columns: pandas writes an empty "
+                              "text as an empty field, Polars' writer as \"\": handed over to "
+                              "pandas for the write", also=("index",))
     frame = written_index(frame, bool(index))
     kwargs: dict[str, object] = {}
     sep = call.const("sep", None, ",")

@@ -200,7 +200,7 @@ def series_position(call: PandasCall, ctx: RuleContext) -> Value:
     one (its object column), a numpy bool otherwise.
     Caveats: slices, lists of positions and a position computed at run time are TODOs.
     """
-    from porter.rules.groupby import _pandas_scalar, scalar_of  # groupby builds on the values taken here
+    from porter.rules.groupby import pandas_scalar, scalar_of  # groupby builds on the values taken here
     column = call.receiver
     assert isinstance(column, Column)
     key = call.args[0] if len(call.args) == 1 else None
@@ -235,5 +235,5 @@ def series_position(call: PandasCall, ctx: RuleContext) -> Value:
     if column.dtype == "datetime":
         # pandas' value: a Timestamp (its normalize(), quarter, day_name() are there), NaT for
         # a missing one; item() gave a Python datetime and None (printed "None")
-        return _pandas_scalar(column, expr, "datetime")
+        return pandas_scalar(column, expr, "datetime")
     return scalar_of(column, expr, column.dtype if column.dtype in ("int", "float") else None)
