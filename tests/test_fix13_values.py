@@ -131,3 +131,26 @@ def test_value_counts_keys_of_unknown_type_keep_nan(tmp_path):
         print(s["ok"].value_counts(dropna=False).to_dict())
         print(s["sailing"].value_counts(dropna=False).to_dict())
     """, tmp_path, {"t.csv": "sailing,ok\nS1,True\n,\nS3,False\nS1,True\n"})
+
+
+def test_distinct_texts_listed_without_a_missing_one_do_not_need_pandas(tmp_path):
+    # pandas is the reference; the converted script reaches pandas only where a text is missing
+    from support import same_text
+    result = same_text("""
+        import pandas as pd
+        d = pd.read_csv("parts.csv")
+        named = d[d["part"].notna()]
+        print(sorted(named["part"].unique()))
+        print(d["part"].unique().tolist())
+        for p in named["part"].unique():
+            print(p, len(named[named["part"] == p]))
+        print(d["part"].unique())
+    """, tmp_path, {"parts.csv": """\
+        part,kg
+        rope,2
+        pulley,
+        ,4
+        rope,1
+        Öse,3
+        """})
+    assert "pandas_text_values" in result.converted_text

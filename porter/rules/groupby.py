@@ -982,6 +982,17 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
                   refs=frozenset({result_name}))
 
 
+# the distinct texts of a column as pandas' unique() gives them, pandas imported only for nan
+TEXT_VALUES_FUNCTION = "pandas_text_values"
+TEXT_VALUES_DEFINITION = '''\
+def pandas_text_values(values):
+    """Texts as pandas gives them: its own string array, nan for a missing one, where one is
+    missing (Polars gives None); otherwise the same texts as a numpy array, so that pandas is
+    not imported for them."""
+    return values.to_pandas().unique() if values.null_count() else values.to_numpy()
+'''
+
+
 @rule("series.unique")
 def unique(call: PandasCall, ctx: RuleContext) -> Value:
     """s.unique() -> the distinct values in order of first appearance, as an array.
@@ -990,12 +1001,14 @@ def unique(call: PandasCall, ctx: RuleContext) -> Value:
     nan (NaN and a missing value are one value, as pandas counts them), an integer column with
     one is float, and tolist() / iterating give numbers.
     Text is pandas' own array of the distinct values (nan for a missing one; a loop over it
-    compares as a missing text in Polars expressions); categories (pd.cut, astype("category"))
+    compares as a missing text in Polars expressions), reached only where a text is missing
+    unless printed (pandas_text_values: numpy's array of the same texts otherwise); categories (pd.cut, astype("category"))
     pandas' Categorical of them (tolist() gives nan for a missing one). Dates,
     times and durations are pandas' own array (date objects, Timestamps, Timedeltas, NaT).
     Caveats: values of unknown type are a numpy array of Polars' values, where a missing value
     is None, not nan (0.95; None still compares in Polars expressions, nan would not against
-    text); a printed Categorical lists its categories, in another order for astype("category")
+    text); distinct texts held in a name and printed later are laid out as numpy's array where
+    none is missing (0.98); a printed Categorical lists its categories, in another order for astype("category")
     (0.9 when printed).
     """
     column = call.receiver
@@ -1021,11 +1034,17 @@ def unique(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.handover = True
         return Scalar(series.method("to_pandas").method("fillna", emit.atom('float("nan")'))
                       .method("to_numpy"), pytype="array")
-    if column.dtype == "str" and not column.element:
-        # pandas' own array of the distinct texts (its string array, printed as such): nan for
-        # a missing one, in tolist() and in a loop over it (null again in Polars expressions)
+    if column.dtype == "str" and not column.element and ctx.shown:
+        # printed: pandas' own array of the distinct texts (its string array, printed as such),
+        # nan for a missing one
         ctx.handover = True
         return Scalar(series.method("to_pandas").method("unique"), pytype="array", items="text")
+    if column.dtype == "str" and not column.element:
+        # listed, sorted or looped over: pandas' array where a text is missing (nan for it),
+        # else the same texts as a numpy array, without importing pandas for them
+        ctx.lower("the distinct texts held in a name and printed later are pandas' string "
+                  "array only where one is missing (a numpy array's layout otherwise)", 0.98)
+        return Scalar(emit.call(TEXT_VALUES_FUNCTION, series), pytype="array", items="text")
     if column.dtype in ("str", None):
         ctx.lower("a missing value in the distinct values is None here, nan in pandas", 0.95)
         return Scalar(series.method("to_numpy"), pytype="array")

@@ -15,6 +15,13 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_text_values(values):
+    """Texts as pandas gives them: its own string array, nan for a missing one, where one is
+    missing (Polars gives None); otherwise the same texts as a numpy array, so that pandas is
+    not imported for them."""
+    return values.to_pandas().unique() if values.null_count() else values.to_numpy()
+
+
 def pandas_group_sum(x):
     """x.sum() of floats in a group_by or a window, as pandas' group sum adds them: exactly,
     rounded once (Polars' own sum can end a unit in the last digit away, 212.40000000000003
@@ -205,11 +212,11 @@ no_wage = milk.filter(pl.col("wage_per_litre").is_null()).collect().lazy()
 print(
     f"{no_wage.select(pl.len()).collect().item()} lines by herders not on the wage list:",
     sorted(
-        no_wage.select(pl.col("herder_key").unique(maintain_order=True))
-        .collect()
-        .to_series()
-        .to_pandas()
-        .unique(),
+        pandas_text_values(
+            no_wage.select(pl.col("herder_key").unique(maintain_order=True))
+            .collect()
+            .to_series(),
+        ),
     ),
 )
 

@@ -10,6 +10,13 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_text_values(values):
+    """Texts as pandas gives them: its own string array, nan for a missing one, where one is
+    missing (Polars gives None); otherwise the same texts as a numpy array, so that pandas is
+    not imported for them."""
+    return values.to_pandas().unique() if values.null_count() else values.to_numpy()
+
+
 def pandas_title(text):
     """text.str.to_titlecase() as pandas' str.title() writes it (pyarrow's kernel, one letter
     at a time): "Σ" is "σ" at the end of a word too, "ß" first in a word is "ẞ" (Polars: "Ss"),
@@ -228,7 +235,7 @@ checked = (
     .collect()
     .lazy()
 )
-unknown_gauges = checked.filter(pl.col("_merge") == "left_only").select(pl.col("gauge").unique(maintain_order=True)).collect().to_series().to_pandas().unique().tolist()
+unknown_gauges = pandas_text_values(checked.filter(pl.col("_merge") == "left_only").select(pl.col("gauge").unique(maintain_order=True)).collect().to_series()).tolist()
 checked = checked.filter(pl.col("_merge") == "both").drop("_merge")
 checked = checked.with_columns(margin_cm=pl.col("bank_height_cm") - pl.col("level_cm"))
 checked = checked.with_columns(

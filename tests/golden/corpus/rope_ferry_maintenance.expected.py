@@ -14,6 +14,13 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_text_values(values):
+    """Texts as pandas gives them: its own string array, nan for a missing one, where one is
+    missing (Polars gives None); otherwise the same texts as a numpy array, so that pandas is
+    not imported for them."""
+    return values.to_pandas().unique() if values.null_count() else values.to_numpy()
+
+
 def pandas_title(text):
     """text.str.to_titlecase() as pandas' str.title() writes it (pyarrow's kernel, one letter
     at a time): "Σ" is "σ" at the end of a word too, "ß" first in a word is "ẞ" (Polars: "Ss"),
@@ -467,11 +474,11 @@ print(
 print(
     "parts with no price:",
     sorted(
-        lines.filter(pl.col("supplier").is_null() & pl.col("part").is_not_null())
-        .select(pl.col("part").unique(maintain_order=True))
-        .collect()
-        .to_series()
-        .to_pandas()
-        .unique(),
+        pandas_text_values(
+            lines.filter(pl.col("supplier").is_null() & pl.col("part").is_not_null())
+            .select(pl.col("part").unique(maintain_order=True))
+            .collect()
+            .to_series(),
+        ),
     ),
 )
