@@ -120,3 +120,41 @@ def test_groups_of_missing_values_infinities_and_none(tmp_path):
         e,0.2
         e,-0.0
         """})
+
+
+def temperatures_csv(rows: int = 5000, stations: int = 40, seed: int = 1) -> str:
+    """Hourly temperatures of both signs at forty stations: sums that cancel, where pandas'
+    compensated sum keeps an error of its own in many groups (not the exact sum rounded)."""
+    rng = np.random.default_rng(seed)
+    temp = np.round(rng.normal(0.5, 6.0, rows), 1)
+    temp[rng.random(rows) < 0.04] = np.nan
+    frame = pd.DataFrame({
+        "station": rng.integers(0, stations, rows),
+        "at": pd.Timestamp("2024-03-01") + pd.to_timedelta(np.sort(rng.integers(0, 90 * 24, rows)), unit="h"),
+        "temp": temp,
+    })
+    return frame.to_csv(index=False)
+
+
+def test_group_sums_that_cancel_are_pandas_compensated_sums(tmp_path):
+    # pandas' group sum is a compensated (Kahan) sum in row order: where temperatures of both
+    # signs cancel, it is not the exact sum rounded in many groups (checked first, so that the
+    # test needs porter's pandas_group_sums and not an exact sum)
+    csv = temperatures_csv()
+    frame = pd.read_csv(io.StringIO(csv), parse_dates=["at"])
+    assert not exact_group_sums(csv.replace("temp", "price"), ["station"])
+    daily = frame.set_index("at")["temp"].resample("D").sum()
+    exact = frame.groupby(frame["at"].dt.floor("D"))["temp"].agg(lambda s: math.fsum(s.dropna()))
+    assert (daily.loc[exact.index].to_numpy() != exact.to_numpy()).any()
+    same_text("""
+        import pandas as pd
+        d = pd.read_csv("temps.csv", parse_dates=["at"])
+        t = d.groupby("station").agg(total=("temp", "sum"), avg=("temp", "mean"), n=("temp", "count"))
+        t.to_csv("per_station.csv")
+        daily = d.set_index("at")["temp"].resample("D").sum().reset_index()
+        daily.to_csv("daily.csv", index=False)
+        means = d.set_index("at").resample("W")["temp"].mean()
+        means.to_csv("weekly.csv")
+        p = d.pivot_table(index="station", columns=d["at"].dt.month.rename("month"), values="temp", aggfunc="sum")
+        print(d.groupby(["station"])["temp"].sum().tolist())
+    """, tmp_path, {"temps.csv": csv})

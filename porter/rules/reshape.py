@@ -14,7 +14,7 @@ import numpy as np
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.rules.groupby import agg_expr, how_name, pivot_sorted
+from porter.rules.groupby import agg_expr, agg_with_sums, how_name, pivot_sorted
 from porter.rules.io import polars_dtype
 from porter.rules.ops import float32_possible
 from porter.rules.io_options import DIVIDE_FUNCTION, QUANTILE_FUNCTION
@@ -165,8 +165,8 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
     code = code.method("drop_nulls", names).method("group_by", names)
     fill: Any = None
     if has_values:
-        code = code.method("agg", agg_expr(emit.col(value_name), how, values.dtype,
-                                           float32=float32_possible(ctx)))
+        code = agg_with_sums(code, agg_expr(emit.col(value_name), how, values.dtype,
+                                            float32=float32_possible(ctx)))
         if how in ("mean", "median", "numpy_median", "min", "max"):
             code = code.method("drop_nulls", value_name)  # pandas drops a group whose value is missing
     else:

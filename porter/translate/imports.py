@@ -11,6 +11,7 @@ from porter.rules.strings import TITLE_DEFINITION, TITLE_FUNCTION, UPPER_DEFINIT
 from porter.rules.selection import DTYPE_PROBE_CONSTANT, DTYPE_PROBE_DEFINITION
 from porter.rules.groupby import (
     GROUP_MEAN_DEFINITION, GROUP_MEAN_FUNCTION, GROUP_SUM_DEFINITION, GROUP_SUM_FUNCTION,
+    GROUP_SUMS_DEFINITION, GROUP_SUMS_FUNCTION,
     MEAN_DEFINITION, MEAN_FUNCTION, TEXT_VALUES_DEFINITION, TEXT_VALUES_FUNCTION,
 )
 from porter.rules.io_options import (
@@ -118,6 +119,7 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (UPPER_FUNCTION, UPPER_DEFINITION),
                                  (TITLE_FUNCTION, TITLE_DEFINITION),
                                  (GROUP_SUM_FUNCTION, GROUP_SUM_DEFINITION),
+                                 (GROUP_SUMS_FUNCTION, GROUP_SUMS_DEFINITION),
                                  (GROUP_MEAN_FUNCTION, GROUP_MEAN_DEFINITION),
                                  (MEAN_FUNCTION, MEAN_DEFINITION),
                                  (TEXT_VALUES_FUNCTION, TEXT_VALUES_DEFINITION)):

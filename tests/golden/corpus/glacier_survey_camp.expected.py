@@ -14,19 +14,49 @@ PANDAS_NA_VALUES = [
 ]
 
 
-def pandas_group_mean(x):
-    """x.mean() of floats in a group_by or a window, as pandas' group mean computes it: the
-    sum added as pandas_group_sum adds it, over the count; missing where there is no value."""
-    return (pandas_group_sum(x) / x.count()).fill_nan(None)
+def pandas_group_sums(values, mean=False):
+    """Each group's sum of floats (mean=True: mean) as pandas computes it, from the group's
+    values as a list (pl.col(...) in an agg): a compensated (Kahan) sum in row order, missing
+    values skipped; for the mean, over their count. Polars' own sum adds in another order and
+    can end a unit in the last digit away (212.40000000000003 for 212.4)."""
+    import numpy as np
 
+    def add(lists):
+        sizes = lists.list.len().cast(pl.Int64).to_numpy()
+        flat = lists.explode().cast(pl.Float64).to_numpy()  # an empty list: one NaN
+        starts = np.concatenate(([0], np.maximum(sizes, 1).cumsum()[:-1])).astype(np.int64)
+        order = np.argsort(-sizes, kind="stable")  # longest first
+        sizes, starts = sizes[order], starts[order]
+        total, carry, count = (np.zeros(len(sizes)) for _ in range(3))
+        step, longest = 0, int(sizes[0]) if len(sizes) else 0
+        with np.errstate(invalid="ignore"):  # inf - inf: a NaN carry, set back to 0
+            while step < longest:  # the groups side by side, one value of each per step
+                n = int(np.searchsorted(-sizes, -step))  # groups longer than step
+                if n <= 100:
+                    break  # a few long groups are quicker one at a time
+                x = flat[starts[:n] + step]
+                seen = x == x
+                y = x - carry[:n]
+                t = total[:n] + y
+                c = (t - total[:n]) - y
+                total[:n] = np.where(seen, t, total[:n])
+                carry[:n] = np.where(seen, np.where(c == c, c, 0.0), carry[:n])
+                count[:n] += seen
+                step += 1
+        for g in range(int(np.searchsorted(-sizes, -step)) if step < longest else 0):
+            t, c, k = float(total[g]), float(carry[g]), float(count[g])
+            for x in flat[starts[g] + step:starts[g] + sizes[g]].tolist():
+                if x == x:
+                    y = x - c
+                    s = t + y
+                    c = (s - t) - y
+                    c, t, k = c if c == c else 0.0, s, k + 1
+            total[g], count[g] = t, k
+        result = np.empty(len(sizes))
+        result[order] = total / np.where(count > 0, count, np.nan) if mean else total
+        return pl.Series(result).fill_nan(None) if mean else pl.Series(result)
 
-def pandas_group_sum(x):
-    """x.sum() of floats in a group_by or a window, as pandas' group sum adds them: exactly,
-    rounded once (Polars' own sum can end a unit in the last digit away, 212.40000000000003
-    for 212.4, and round(2) of a sum on a half cent then gives the other cent). Each value
-    is cut into a multiple of 2**-20, which add up without error, and the small rest."""
-    whole = (x * 1048576.0).round() / 1048576.0
-    return whole.sum() + (x - whole).fill_nan(0.0).sum()
+    return values.map_batches(add, return_dtype=pl.Float64)
 
 
 def pandas_title(text):
@@ -421,9 +451,10 @@ def main():
         .group_by("zone")
         .agg(
             pl.col("stake").drop_nulls().n_unique().cast(pl.Int64).alias("stakes"),
-            pandas_group_mean(pl.col("cm_per_day")).alias("cm_per_day"),
+            pl.col("cm_per_day"),
             pl.col("elevation_m").max().alias("top_m"),
         )
+        .with_columns(pandas_group_sums(pl.col("cm_per_day"), mean=True))
         .sort("zone")
     )
     per_zone = per_zone.collect().to_pandas()
