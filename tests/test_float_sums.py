@@ -158,3 +158,41 @@ def test_group_sums_that_cancel_are_pandas_compensated_sums(tmp_path):
         p = d.pivot_table(index="station", columns=d["at"].dt.month.rename("month"), values="temp", aggfunc="sum")
         print(d.groupby(["station"])["temp"].sum().tolist())
     """, tmp_path, {"temps.csv": csv})
+
+
+def test_resampled_sums_without_missing_values_are_numpy_reduceat(tmp_path):
+    # a resample bins rows sorted by time: pandas 3.1 adds each bin with numpy's reduceat (the
+    # first value plus numpy's pairwise sum of the rest) where no value of the column (of the
+    # group, after a groupby) is missing, and with its compensated sum otherwise; these
+    # temperatures have no missing value, and the bins' Kahan sums differ from pandas' in many
+    frame = pd.read_csv(io.StringIO(temperatures_csv()), parse_dates=["at"])
+    frame["temp"] = frame["temp"].fillna(0.0)  # no missing temperature
+    csv = frame.to_csv(index=False)
+    assert frame["temp"].notna().all()
+
+    def kahan(values):
+        total = carry = 0.0
+        for x in values:
+            y = x - carry
+            t = total + y
+            carry, total = (t - total) - y, t
+        return total
+
+    daily = frame.set_index("at")["temp"].resample("D").sum()
+    kahans = frame.groupby(frame["at"].dt.floor("D"))["temp"].agg(lambda s: kahan(s.tolist()))
+    assert (daily.loc[kahans.index].to_numpy() != kahans.to_numpy()).any()
+    with_gap = frame.copy()
+    with_gap.loc[with_gap["station"] == 3, "temp"] = np.nan  # one station with no value
+    with_gap.to_csv(tmp_path / "gaps.csv", index=False)
+    same_text("""
+        import pandas as pd
+        d = pd.read_csv("temps.csv", parse_dates=["at"])
+        daily = d.set_index("at")["temp"].resample("D").sum().reset_index()
+        daily.to_csv("daily.csv", index=False)
+        per = d.set_index("at").groupby("station")["temp"].resample("W").mean().reset_index()
+        per.to_csv("per_station_weekly.csv", index=False)
+        g = pd.read_csv("gaps.csv", parse_dates=["at"])
+        both = g.groupby("station").resample("D", on="at")["temp"].sum().reset_index()
+        both.to_csv("gaps_daily.csv", index=False)
+        print(g.set_index("at")["temp"].resample("D").sum().tolist())
+    """, tmp_path, {"temps.csv": csv, "gaps.csv": (tmp_path / "gaps.csv").read_text()})

@@ -499,16 +499,22 @@ def _binned(resampled: Resampled, outputs: list[_Output], ctx: RuleContext,
     bins = bins_of(resampled.freq)
     time = resampled.time
     code = frame.code
-    if resampled.time_order and any(o.how in ("first", "last") for o in outputs):
+    if resampled.time_order and any(o.how in ("first", "last") or o.how in ("sum", "mean")
+                                    and o.dtype == "float" for o in outputs):
         # pandas sorts the rows by time (stably) before it bins them: first / last are the
-        # earliest / latest values of the bin, not the first / last rows of the frame
+        # earliest / latest values of the bin, not the first / last rows of the frame, and a
+        # float sum adds the bin's values in time order (pandas_group_sums follows the order)
         code = code.method("sort", time, maintain_order=True)
     # each row's label, before rows are left out: pandas counts fixed bins from the first
     # timestamp of every row (a row whose other key is missing included)
     code = code.method("with_columns", bins.labels(emit.col(time)).method("alias", time))
     code = code.method("drop_nulls", emit.names_arg(resampled.keys))
+    # a resample (and a Grouper alone) bins rows sorted by time, within the other keys: pandas
+    # adds a bin's floats with numpy's reduceat there unless a value is missing
+    binned_in_order = tuple(k for k in resampled.keys if k != time) if resampled.time_order \
+        else None
     code = agg_with_sums(code.method("group_by", emit.names_arg(resampled.keys)),
-                         *(o.aliased() for o in outputs))
+                         *(o.aliased() for o in outputs), sorted_within=binned_in_order)
     dtypes: list[str | None] = [agg_dtype(o.how, o.dtype) for o in outputs]
     if any(o.how == "sum" and o.dtype is None for o in outputs):
         # a sum of a column of unknown type may be a sum of True/False: UInt32 in Polars

@@ -13,49 +13,59 @@ PANDAS_NA_VALUES = [
 ]
 
 
-def pandas_group_sums(values, mean=False):
+def pandas_group_sums(values, mean=False, sorted_within=None):
     """Each group's sum of floats (mean=True: mean) as pandas computes it, from the group's
-    values as a list (pl.col(...) in an agg): a compensated (Kahan) sum in row order, missing
-    values skipped; for the mean, over their count. Polars' own sum adds in another order and
-    can end a unit in the last digit away (212.40000000000003 for 212.4)."""
+    values as a list (pl.col(...) in an agg). pandas adds a group with a compensated (Kahan)
+    sum in row order, missing values skipped; where the rows reach it grouped and sorted (a
+    resample: sorted_within names the keys whose rows are binned together, [] for all rows)
+    and none of those rows is missing, with numpy's reduceat: the first value plus numpy's
+    pairwise sum of the rest. Polars' own sum adds in another order and can end a unit in
+    the last digit away (212.40000000000003 for 212.4)."""
     import numpy as np
 
-    def add(lists):
+    def add(columns):
+        lists = columns[0]
         sizes = lists.list.len().cast(pl.Int64).to_numpy()
         flat = lists.explode().cast(pl.Float64).to_numpy()  # an empty list: one NaN
         starts = np.concatenate(([0], np.maximum(sizes, 1).cumsum()[:-1])).astype(np.int64)
-        order = np.argsort(-sizes, kind="stable")  # longest first
-        sizes, starts = sizes[order], starts[order]
+        order = np.argsort(-sizes, kind="stable")  # the longest groups first
         total, carry, count = (np.zeros(len(sizes)) for _ in range(3))
-        step, longest = 0, int(sizes[0]) if len(sizes) else 0
+        step, longest = 0, int(sizes[order[0]]) if len(sizes) else 0
         with np.errstate(invalid="ignore"):  # inf - inf: a NaN carry, set back to 0
             while step < longest:  # the groups side by side, one value of each per step
-                n = int(np.searchsorted(-sizes, -step))  # groups longer than step
-                if n <= 100:
+                at = order[:int(np.searchsorted(-sizes[order], -step))]  # longer than step
+                if len(at) <= 100:
                     break  # a few long groups are quicker one at a time
-                x = flat[starts[:n] + step]
+                x = flat[starts[at] + step]
                 seen = x == x
-                y = x - carry[:n]
-                t = total[:n] + y
-                c = (t - total[:n]) - y
-                total[:n] = np.where(seen, t, total[:n])
-                carry[:n] = np.where(seen, np.where(c == c, c, 0.0), carry[:n])
-                count[:n] += seen
+                y = x - carry[at]
+                t = total[at] + y
+                c = (t - total[at]) - y
+                total[at] = np.where(seen, t, total[at])
+                carry[at] = np.where(seen, np.where(c == c, c, 0.0), carry[at])
+                count[at] += seen
                 step += 1
-        for g in range(int(np.searchsorted(-sizes, -step)) if step < longest else 0):
-            t, c, k = float(total[g]), float(carry[g]), float(count[g])
-            for x in flat[starts[g] + step:starts[g] + sizes[g]].tolist():
-                if x == x:
-                    y = x - c
-                    s = t + y
-                    c = (s - t) - y
-                    c, t, k = c if c == c else 0.0, s, k + 1
-            total[g], count[g] = t, k
-        result = np.empty(len(sizes))
-        result[order] = total / np.where(count > 0, count, np.nan) if mean else total
-        return pl.Series(result).fill_nan(None) if mean else pl.Series(result)
+            for g in order[:int(np.searchsorted(-sizes[order], -step))] if step < longest else ():
+                t, c, k = float(total[g]), float(carry[g]), float(count[g])
+                for x in flat[starts[g] + step:starts[g] + sizes[g]].tolist():
+                    if x == x:
+                        y = x - c
+                        s = t + y
+                        c = (s - t) - y
+                        c, t, k = c if c == c else 0.0, s, k + 1
+                total[g], count[g] = t, k
+            if len(columns) > 1 and len(sizes):
+                clean = columns[1].to_numpy() & (sizes > 0)
+                total = np.where(clean, np.add.reduceat(flat, starts), total)
+        if not mean:
+            return pl.Series(total)
+        return pl.Series(total / np.where(count > 0, count, np.nan)).fill_nan(None)
 
-    return values.map_batches(add, return_dtype=pl.Float64)
+    if sorted_within is None:
+        return values.map_batches(lambda lists: add([lists]), return_dtype=pl.Float64)
+    missing = values.list.eval(pl.element().fill_nan(None).is_null()).list.any()
+    clean = ~(missing.any().over(sorted_within) if sorted_within else missing.any())
+    return pl.map_batches([values, clean], add, return_dtype=pl.Float64)
 
 
 def pandas_upper(text):
