@@ -196,3 +196,45 @@ def test_resampled_sums_without_missing_values_are_numpy_reduceat(tmp_path):
         both.to_csv("gaps_daily.csv", index=False)
         print(g.set_index("at")["temp"].resample("D").sum().tolist())
     """, tmp_path, {"temps.csv": csv, "gaps.csv": (tmp_path / "gaps.csv").read_text()})
+
+
+def test_groupby_of_rows_sorted_by_their_keys_is_numpy_reduceat(tmp_path):
+    # pandas 3.1 adds a groupby's floats with numpy's reduceat where the rows come sorted by
+    # the keys (a missing key only at the front) and the column has no missing value, and
+    # with its compensated sum otherwise: the conversion tells the two apart on the rows
+    frame = pd.read_csv(io.StringIO(temperatures_csv()), parse_dates=["at"])
+    frame["temp"] = frame["temp"].fillna(0.0)
+    frame = frame.sort_values(["station", "at"], kind="stable")
+    csv = frame.to_csv(index=False)
+    sums = frame.groupby("station")["temp"].sum()
+
+    def kahan(values):
+        total = carry = 0.0
+        for x in values:
+            y = x - carry
+            t = total + y
+            carry, total = (t - total) - y, t
+        return total
+
+    kahans = frame.groupby("station")["temp"].agg(lambda s: kahan(s.tolist()))
+    assert (sums != kahans).any()  # the two adders differ on these rows
+    gap = frame.copy()
+    gap.loc[gap.index[-1], "temp"] = np.nan  # one missing value: the compensated sum
+    first = frame.copy()  # a missing key only at the front: dropped, still in key order
+    first["station"] = first["station"].astype(str).where(first["station"] > 0)
+    last = first.iloc[::-1].sort_values("station", kind="stable")  # missing keys last
+    files = {"temps.csv": csv, "gap.csv": gap.to_csv(index=False),
+             "first.csv": first.to_csv(index=False), "last.csv": last.to_csv(index=False),
+             "shuffled.csv": frame.sample(frac=1.0, random_state=3).to_csv(index=False)}
+    same_text("""
+        import pandas as pd
+        d = pd.read_csv("temps.csv", parse_dates=["at"])
+        t = d.groupby("station").agg(total=("temp", "sum"), avg=("temp", "mean"))
+        t.to_csv("sorted_out.csv")
+        d["day"] = d["at"].dt.strftime("%m-%d")
+        two = d.groupby(["station", "day"])["temp"].sum().reset_index()
+        two.to_csv("two_keys_out.csv", index=False)
+        for name in ["gap", "first", "last", "shuffled"]:
+            e = pd.read_csv(f"{name}.csv", dtype={"station": str})
+            e.groupby("station")["temp"].sum().to_csv(f"{name}_out.csv")
+    """, tmp_path, files)

@@ -33,7 +33,10 @@ AGGREGATIONS = ["sum", "mean", "median", "min", "max", "std", "var", "count", "n
 
 PORTS = [
     pytest.param('r = df.groupby("shop")["qty"].sum()',
-                 'df.drop_nulls("shop").group_by("shop").agg(pl.col("qty")).with_columns(pandas_group_sums(pl.col("qty"))).sort("shop")',
+                 'df.with_columns(_porter_rows_in_key_order=pl.col("shop").is_sorted()).drop_nulls("shop")'
+                 '.group_by("shop").agg(pl.col("qty"), pl.col("_porter_rows_in_key_order").first())'
+                 '.with_columns(pandas_group_sums(pl.col("qty"), in_key_order=pl.col("_porter_rows_in_key_order")))'
+                 '.drop("_porter_rows_in_key_order").sort("shop")',
                  id="missing keys dropped and keys sorted"),
     pytest.param('r = df.groupby("shop", sort=False)["qty"].sum()', 'group_by("shop", maintain_order=True)',
                  id="sort=False keeps first appearance"),
@@ -45,7 +48,7 @@ PORTS = [
                  id="first skips missing"),
     pytest.param('r = df.groupby("shop")["qty"].count()', 'pl.col("qty").count().cast(pl.Int64)', id="count"),
     pytest.param('r = df.groupby("shop").size()', 'pl.len().cast(pl.Int64).alias("size")', id="size"),
-    pytest.param('r = df.groupby("shop").agg(total=("qty", "sum"))', '.agg(pl.col("qty").alias("total")).with_columns(pandas_group_sums(pl.col("total")))',
+    pytest.param('r = df.groupby("shop").agg(total=("qty", "sum"))', '.agg(pl.col("qty").alias("total"), pl.col("_porter_rows_in_key_order").first())',
                  id="named aggregation"),
     pytest.param('r = df.groupby("shop").agg({"qty": ["sum", "max"], "n": "min"})',
                  'pl.col("n").min().alias("n_min")', id="dict of lists flattened to column_function"),

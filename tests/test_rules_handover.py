@@ -64,13 +64,17 @@ PORTS = [
                  'df.select(pl.col("v")).collect().to_series().to_pandas().plot()',
                  "series.plot", id="series plot"),
     pytest.param('df.groupby("k")["v"].sum().plot(kind="bar")',
-                 '''df.drop_nulls("k").group_by("k").agg(pl.col("v")).with_columns(pandas_group_sums(pl.col("v")))
-                    .sort("k").collect()
+                 '''df.with_columns(_porter_rows_in_key_order=pl.col("k").is_sorted()).drop_nulls("k")
+                    .group_by("k").agg(pl.col("v"), pl.col("_porter_rows_in_key_order").first())
+                    .with_columns(pandas_group_sums(pl.col("v"), in_key_order=pl.col("_porter_rows_in_key_order")))
+                    .drop("_porter_rows_in_key_order").sort("k").collect()
                     .to_pandas().set_index("k")["v"].plot(kind="bar")''',
                  "series.plot", id="grouped series keeps its index on the x axis"),
     pytest.param('df.groupby("k").agg(total=("v", "sum")).plot.barh()',
-                 '''df.drop_nulls("k").group_by("k").agg(pl.col("v").alias("total"))
-                    .with_columns(pandas_group_sums(pl.col("total")))
+                 '''df.with_columns(_porter_rows_in_key_order=pl.col("k").is_sorted()).drop_nulls("k")
+                    .group_by("k").agg(pl.col("v").alias("total"), pl.col("_porter_rows_in_key_order").first())
+                    .with_columns(pandas_group_sums(pl.col("total"), in_key_order=pl.col("_porter_rows_in_key_order")))
+                    .drop("_porter_rows_in_key_order")
                     .sort("k").collect().to_pandas().set_index("k").plot.barh()''',
                  "frame.plot", id="grouped frame keeps its index on the x axis"),
     pytest.param('df.hist(column="v", bins=3)',
@@ -92,8 +96,10 @@ PORTS = [
                  'df.collect().to_pandas().to_excel("out.xlsx", sheet_name="data", index=False)',
                  "frame.to_excel", id="to_excel"),
     pytest.param('df.groupby("k").agg(total=("v", "sum")).to_excel("totals.xlsx")',
-                 '''df.drop_nulls("k").group_by("k").agg(pl.col("v").alias("total"))
-                    .with_columns(pandas_group_sums(pl.col("total")))
+                 '''df.with_columns(_porter_rows_in_key_order=pl.col("k").is_sorted()).drop_nulls("k")
+                    .group_by("k").agg(pl.col("v").alias("total"), pl.col("_porter_rows_in_key_order").first())
+                    .with_columns(pandas_group_sums(pl.col("total"), in_key_order=pl.col("_porter_rows_in_key_order")))
+                    .drop("_porter_rows_in_key_order")
                     .sort("k").collect().to_pandas().set_index("k").to_excel("totals.xlsx")''',
                  "frame.to_excel", id="to_excel writes the grouped index"),
     pytest.param('df[df["v"] > 1].to_sql("t", con, index=False)',

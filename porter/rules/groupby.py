@@ -44,14 +44,16 @@ COUNTS = {"count", "nunique", "size"}
 # their own), exactly pandas' result; about 0.1 s per 1,000,000 values.
 GROUP_SUMS_FUNCTION = "pandas_group_sums"
 GROUP_SUMS_DEFINITION = '''\
-def pandas_group_sums(values, mean=False, sorted_within=None):
+def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None):
     """Each group's sum of floats (mean=True: mean) as pandas computes it, from the group's
     values as a list (pl.col(...) in an agg). pandas adds a group with a compensated (Kahan)
-    sum in row order, missing values skipped; where the rows reach it grouped and sorted (a
-    resample: sorted_within names the keys whose rows are binned together, [] for all rows)
-    and none of those rows is missing, with numpy's reduceat: the first value plus numpy's
-    pairwise sum of the rest. Polars' own sum adds in another order and can end a unit in
-    the last digit away (212.40000000000003 for 212.4)."""
+    sum in row order, missing values skipped; where the rows reach it grouped in the order
+    of the sorted keys and none is missing, with numpy's reduceat: the first value plus
+    numpy's pairwise sum of the rest. That is a resample (sorted_within names the keys whose
+    rows are binned together, [] for all rows) where no value of those rows is missing, or a
+    groupby whose in_key_order says so (computed on the rows before grouping). Polars' own
+    sum adds in another order and can end a unit in the last digit away (212.40000000000003
+    for 212.4)."""
     import numpy as np
 
     def add(columns):
@@ -64,7 +66,7 @@ def pandas_group_sums(values, mean=False, sorted_within=None):
         step, longest = 0, int(sizes[order[0]]) if len(sizes) else 0
         with np.errstate(invalid="ignore"):  # inf - inf: a NaN carry, set back to 0
             while step < longest:  # the groups side by side, one value of each per step
-                at = order[:int(np.searchsorted(-sizes[order], -step))]  # longer than step
+                at = order[:int(np.searchsorted(-sizes[order], -step))]  # the longer ones
                 if len(at) <= 100:
                     break  # a few long groups are quicker one at a time
                 x = flat[starts[at] + step]
@@ -76,7 +78,8 @@ def pandas_group_sums(values, mean=False, sorted_within=None):
                 carry[at] = np.where(seen, np.where(c == c, c, 0.0), carry[at])
                 count[at] += seen
                 step += 1
-            for g in order[:int(np.searchsorted(-sizes[order], -step))] if step < longest else ():
+            rest = order[:int(np.searchsorted(-sizes[order], -step))] if step < longest else ()
+            for g in rest:  # each long group on its own, from where the steps stopped
                 t, c, k = float(total[g]), float(carry[g]), float(count[g])
                 for x in flat[starts[g] + step:starts[g] + sizes[g]].tolist():
                     if x == x:
@@ -92,10 +95,13 @@ def pandas_group_sums(values, mean=False, sorted_within=None):
             return pl.Series(total)
         return pl.Series(total / np.where(count > 0, count, np.nan)).fill_nan(None)
 
-    if sorted_within is None:
+    if sorted_within is None and in_key_order is None:
         return values.map_batches(lambda lists: add([lists]), return_dtype=pl.Float64)
     missing = values.list.eval(pl.element().fill_nan(None).is_null()).list.any()
-    clean = ~(missing.any().over(sorted_within) if sorted_within else missing.any())
+    if in_key_order is not None:
+        clean = in_key_order & ~missing.any()
+    else:
+        clean = ~(missing.any().over(sorted_within) if sorted_within else missing.any())
     return pl.map_batches([values, clean], add, return_dtype=pl.Float64)
 '''
 
@@ -123,14 +129,17 @@ def pandas_group_mean(x):
 '''
 
 
-def agg_with_sums(code: Code, *exprs: Code, sorted_within: tuple[str, ...] | None = None) -> Code:
+def agg_with_sums(code: Code, *exprs: Code, sorted_within: tuple[str, ...] | None = None,
+                  in_key_order: str | None = None) -> Code:
     """code.agg(*exprs), where each float sum or mean that agg_expr made and that is an
     aggregate of its own (pandas_group_sum(pl.col("x")), maybe aliased) is added as pandas adds
     it: the agg keeps the group's values as a list and pandas_group_sums adds them after.
 
     `sorted_within`: the rows reach pandas grouped and sorted (a resample bins rows sorted by
     time), binned together within these keys (() for all rows): pandas then adds a group with
-    numpy's reduceat where none of those rows is missing (GROUP_SUMS_DEFINITION)."""
+    numpy's reduceat where none of those rows is missing (GROUP_SUMS_DEFINITION).
+    `in_key_order`: the column of the frame (IN_KEY_ORDER, in_key_order_flag) that says whether
+    the rows come sorted by the keys; taken into the agg and dropped after."""
     inner: list[Code] = []
     after: list[Code] = []
     for expr in exprs:
@@ -143,9 +152,41 @@ def agg_with_sums(code: Code, *exprs: Code, sorted_within: tuple[str, ...] | Non
         options: dict[str, object] = {"mean": True} if mean else {}
         if sorted_within is not None:
             options["sorted_within"] = list(sorted_within)
+        if in_key_order is not None:
+            options["in_key_order"] = emit.col(in_key_order)
         after.append(emit.call(GROUP_SUMS_FUNCTION, emit.col(name), **options))
+    if in_key_order is not None and after:
+        inner.append(emit.col(in_key_order).method("first"))
     code = code.method("agg", *inner)
-    return code.method("with_columns", *after) if after else code
+    if not after:
+        return code
+    code = code.method("with_columns", *after)
+    return code.method("drop", in_key_order) if in_key_order is not None else code
+
+
+IN_KEY_ORDER = "_porter_rows_in_key_order"
+
+
+def in_key_order_flag(grouped: Grouped, exprs: list[Code]) -> Code | None:
+    """For a groupby with float sums of their own (agg_with_sums), a flag computed on the rows
+    before grouping: whether they come sorted by the keys, those with a missing key first
+    (pandas drops them): pandas 3.1's group ids are then monotonic, and it adds a column
+    without missing values with numpy's reduceat (pandas_group_sums). Only for sort=True
+    groupbys by keys that Polars sorts as pandas does (text by code point, numbers, dates,
+    True/False); None otherwise."""
+    if not grouped.sort or grouped.prepared or not grouped.dropna:
+        return None
+    if any(grouped.frame.dtype(k) not in ("str", "int", "datetime", "date", "bool")
+           for k in grouped.keys):
+        return None
+    if not any(_own_group_sum(e) is not None for e in exprs):
+        return None
+    keys = list(grouped.keys)
+    if len(keys) == 1:
+        return emit.col(keys[0]).method("is_sorted")
+    # a row with any key missing is dropped by pandas (id -1): it must come first
+    complete = emit.unary("~", emit.pl("any_horizontal", emit.pl("col", *keys).method("is_null")))
+    return emit.when(complete, emit.pl("struct", *keys)).method("is_sorted")
 
 
 def _own_group_sum(expr: Code) -> tuple[Code, str, bool] | None:
@@ -456,9 +497,15 @@ def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleCo
         # the frame's first zero
         grouped = replace(grouped, frame=replace(grouped.frame, code=grouped.frame.code.method(
             "with_columns", *(emit.col(k).method("first").method("over", k) for k in zeros))))
+    flag = in_key_order_flag(grouped, exprs) if order is None else None
+    if flag is not None:
+        # pandas adds a group's floats one of two ways, chosen by how the rows come
+        grouped = replace(grouped, frame=replace(grouped.frame, code=grouped.frame.code.method(
+            "with_columns", **{IN_KEY_ORDER: flag})))
     code = agg_with_sums(
         grouping_code(grouped if order is None else replace(grouped, sort=False)),
-        *exprs, *(emit.col(k).method("first").method("alias", ZERO_KEY + k) for k in zeros))
+        *exprs, *(emit.col(k).method("first").method("alias", ZERO_KEY + k) for k in zeros),
+        in_key_order=IN_KEY_ORDER if flag is not None else None)
     if zeros:
         code = code.method("with_columns", *(emit.col(ZERO_KEY + k).method("alias", k)
                                              for k in zeros)).method(

@@ -22,14 +22,16 @@ def pandas_text_values(values):
     return values.to_pandas().unique() if values.null_count() else values.to_numpy()
 
 
-def pandas_group_sums(values, mean=False, sorted_within=None):
+def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None):
     """Each group's sum of floats (mean=True: mean) as pandas computes it, from the group's
     values as a list (pl.col(...) in an agg). pandas adds a group with a compensated (Kahan)
-    sum in row order, missing values skipped; where the rows reach it grouped and sorted (a
-    resample: sorted_within names the keys whose rows are binned together, [] for all rows)
-    and none of those rows is missing, with numpy's reduceat: the first value plus numpy's
-    pairwise sum of the rest. Polars' own sum adds in another order and can end a unit in
-    the last digit away (212.40000000000003 for 212.4)."""
+    sum in row order, missing values skipped; where the rows reach it grouped in the order
+    of the sorted keys and none is missing, with numpy's reduceat: the first value plus
+    numpy's pairwise sum of the rest. That is a resample (sorted_within names the keys whose
+    rows are binned together, [] for all rows) where no value of those rows is missing, or a
+    groupby whose in_key_order says so (computed on the rows before grouping). Polars' own
+    sum adds in another order and can end a unit in the last digit away (212.40000000000003
+    for 212.4)."""
     import numpy as np
 
     def add(columns):
@@ -42,7 +44,7 @@ def pandas_group_sums(values, mean=False, sorted_within=None):
         step, longest = 0, int(sizes[order[0]]) if len(sizes) else 0
         with np.errstate(invalid="ignore"):  # inf - inf: a NaN carry, set back to 0
             while step < longest:  # the groups side by side, one value of each per step
-                at = order[:int(np.searchsorted(-sizes[order], -step))]  # longer than step
+                at = order[:int(np.searchsorted(-sizes[order], -step))]  # the longer ones
                 if len(at) <= 100:
                     break  # a few long groups are quicker one at a time
                 x = flat[starts[at] + step]
@@ -54,7 +56,8 @@ def pandas_group_sums(values, mean=False, sorted_within=None):
                 carry[at] = np.where(seen, np.where(c == c, c, 0.0), carry[at])
                 count[at] += seen
                 step += 1
-            for g in order[:int(np.searchsorted(-sizes[order], -step))] if step < longest else ():
+            rest = order[:int(np.searchsorted(-sizes[order], -step))] if step < longest else ()
+            for g in rest:  # each long group on its own, from where the steps stopped
                 t, c, k = float(total[g]), float(carry[g]), float(count[g])
                 for x in flat[starts[g] + step:starts[g] + sizes[g]].tolist():
                     if x == x:
@@ -70,10 +73,13 @@ def pandas_group_sums(values, mean=False, sorted_within=None):
             return pl.Series(total)
         return pl.Series(total / np.where(count > 0, count, np.nan)).fill_nan(None)
 
-    if sorted_within is None:
+    if sorted_within is None and in_key_order is None:
         return values.map_batches(lambda lists: add([lists]), return_dtype=pl.Float64)
     missing = values.list.eval(pl.element().fill_nan(None).is_null()).list.any()
-    clean = ~(missing.any().over(sorted_within) if sorted_within else missing.any())
+    if in_key_order is not None:
+        clean = in_key_order & ~missing.any()
+    else:
+        clean = ~(missing.any().over(sorted_within) if sorted_within else missing.any())
     return pl.map_batches([values, clean], add, return_dtype=pl.Float64)
 
 
@@ -222,6 +228,7 @@ milk = (
 # --- per herder: litres, fat and wage
 per_herder = (
     milk
+    .with_columns(_porter_rows_in_key_order=pl.col("herder_key").is_sorted())
     .drop_nulls("herder_key")
     .group_by("herder_key")
     .agg(
@@ -229,8 +236,15 @@ per_herder = (
         pl.col("litres").sum().alias("litres"),
         pl.col("fat_kg"),
         pl.col("wage").sum().alias("wage"),
+        pl.col("_porter_rows_in_key_order").first(),
     )
-    .with_columns(pandas_group_sums(pl.col("fat_kg")))
+    .with_columns(
+        pandas_group_sums(
+            pl.col("fat_kg"),
+            in_key_order=pl.col("_porter_rows_in_key_order"),
+        ),
+    )
+    .drop("_porter_rows_in_key_order")
     .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("herder_key")
 )
