@@ -911,31 +911,76 @@ def abs_(call: PandasCall, ctx: RuleContext) -> Value:
 def clip(call: PandasCall, ctx: RuleContext) -> Value:
     """s.clip(lower, upper) -> .clip(lower, upper).
 
-    Handles: an integer column with float bounds becomes float in pandas; Polars would
-    truncate the bounds, so the column is cast to Float64 first.
+    Handles: an integer column with fractional bounds becomes float in pandas; Polars would
+    truncate the bounds (3.7 to 3), so the column is cast to Float64 first; a bound the script
+    computes is cast for as a float unless it is known to be an int. A whole float bound (0.0)
+    on an int column is the int it equals, and a missing (NaN) or infinite one no bound:
+    pandas keeps int64 (written 0).
     Two single bounds the wrong way round are swapped, as pandas swaps them (clip(3, 1) is
     clip(1, 3)): constants here, bounds computed by the script when it runs.
-    Caveats: pandas makes it float only when a value reaches a bound: one that no bound
-    changes stays integer there (written 3, Polars 3.0) (0.95).
+    Caveats: pandas makes it float only when a value reaches a fractional bound: one that no
+    bound changes stays integer there (written 3, Polars 3.0) (0.95); so does a computed bound
+    that is whole (0.95, or 0.9 when porter does not know it is a number).
     """
     ctx.reject_unknown(call, "lower", "upper", positional=2)
     column = call.receiver
     assert isinstance(column, Column)
     lower = call.arg("lower", 0, None)
     upper = call.arg("upper", 1, None)
+    if column.dtype in ("int", None):
+        # pandas clips an int64 column to a whole float bound (0.0) as to the int, and takes a
+        # NaN bound, or an infinite one on its own side, for no bound: the column stays int64
+        # (written 0). An int literal keeps Polars' Int64 column Int64 and a Float64 one takes
+        # it as a float
+        lower, upper = _as_int(lower, -math.inf), _as_int(upper, math.inf)
     bounds = [b for b in (lower, upper) if b is not None]
     code, dtype = column.code, column.dtype
-    if any(isinstance(b, Opaque) and isinstance(b.const, float) for b in bounds) and column.dtype != "float":
+    if not bounds:
+        return derived_column(column, code, dtype=dtype)  # no bound: the values as they are
+    kinds = {_bound_kind(b) for b in bounds}
+    if column.dtype != "float" and ("float" in kinds or column.dtype == "int" and None in kinds):
+        # Polars casts a bound to the column's type: a float bound on an Int64 column would be
+        # truncated (a cap of 3.7 gives 3 where pandas gives 3.7)
         code, dtype = code.method("cast", emit.atom("pl.Float64")), "float"
-        ctx.lower("pandas makes the integer column float only where a value reaches a float "
-                  "bound; when none does it stays integer (written 3 where Polars writes 3.0)",
-                  0.95)
+        if "float" in kinds:
+            ctx.lower("pandas makes the integer column float only where a value reaches a "
+                      "float bound that is not whole; when none does it stays integer "
+                      "(written 3 where Polars writes 3.0)", 0.95)
+        else:
+            ctx.lower("a bound the script computes, of a type porter does not know, on an "
+                      "integer column: the column is made Float64 so that a float bound is "
+                      "not truncated; pandas keeps int64 where the bound is a whole number "
+                      "or no value reaches it (written 3 where Polars writes 3.0)", 0.9)
+    elif column.dtype is None and None in kinds:
+        ctx.lower("a bound the script computes on a column of unknown type: Polars takes a "
+                  "float bound as an integer column's type (a cap of 3.7 gives 3 where pandas "
+                  "gives 3.7)", 0.9)
     if any(isinstance(b, Column) for b in bounds):
         raise Unsupported("bounds given per row")
     args = [ctx.expr(b, column.frame) if b is not None else None for b in (lower, upper)]
     if lower is not None and upper is not None:
         args = _ordered_bounds(lower, upper, column, ctx)
     return derived_column(column, code.method("clip", *args), dtype=dtype)
+
+
+def _as_int(value: Value | None, no_bound: float) -> Value | None:
+    """A bound of clip() on an int column: a whole float constant as the int it equals, a
+    NaN or `no_bound` (inf for the upper bound) as None; anything else as it is."""
+    if isinstance(value, Opaque) and isinstance(value.const, float) \
+            and (value.const != value.const or value.const == no_bound):
+        return None
+    whole = whole_float(value) if value is not None else None
+    return value if whole is None else Opaque(code=emit.atom(repr(whole)), const=whole)
+
+
+def _bound_kind(value: Value) -> str | None:
+    """"int" or "float" when a bound is known to be one, else None."""
+    if isinstance(value, Opaque) and value.is_const:
+        return "int" if isinstance(value.const, int) else "float" \
+            if isinstance(value.const, float) else None
+    if isinstance(value, Scalar) and value.pytype in ("int", "float"):
+        return value.pytype
+    return None
 
 
 def _number_const(value: Value) -> bool:
@@ -1055,6 +1100,8 @@ def where_mask(call: PandasCall, ctx: RuleContext) -> Value:
         if kind is not None and column.dtype is not None and kind != column.dtype \
                 and not {kind, column.dtype} <= numbers:
             raise Unsupported(f"a {kind} value into a {column.dtype} column {MIXED_COLUMN}")
+    if not missing and column.dtype in ("int", None):
+        other = _int_float_other(other, column, call.name, ctx)
     frame = column.frame
     test = ctx.expr(cond, frame).method("fill_null", False)  # missing: False, as pandas has it
     kept = column.code
@@ -1074,6 +1121,42 @@ def where_mask(call: PandasCall, ctx: RuleContext) -> Value:
         # one): Polars keeps Int64 with nulls, which later steps read (lost_float_ints)
         result = replace(result, float_int=f"{call.name}() left a value missing")
     return result
+
+
+def whole_float(value: Value) -> int | None:
+    """A float constant that an int64 column holds without loss (0.0, -3.0, 1e6), as an int;
+    None for anything else (2.5, NaN, inf, 1e30, an int, a column)."""
+    if not (isinstance(value, Opaque) and isinstance(value.const, float)):
+        return None
+    number = value.const
+    if math.isfinite(number) and number.is_integer() and -2**63 <= number < 2**63:
+        return int(number)
+    return None
+
+
+def _int_float_other(other: Value, column: Column, method: str, ctx: RuleContext) -> Value:
+    """The value where() / mask() puts into an int (or not known) column. pandas puts a float
+    into its int64 column as an int when no value is lost (0.0 is 0: the column stays int64,
+    written 0), and makes the column float64 only for a fraction (or a float column, a value
+    computed when the script runs that is not whole) and only when the condition leaves a
+    value out: a type that depends on the data."""
+    whole = whole_float(other)
+    if whole is not None:
+        # an int literal: an Int64 column stays Int64 and a Float64 one takes it as a float
+        # (its supertype), as pandas does with 0.0 in either
+        return Opaque(code=emit.atom(repr(whole)), const=whole)
+    fraction = isinstance(other, Opaque) and isinstance(other.const, float) \
+        and math.isfinite(other.const)
+    computed = column.dtype == "int" and (isinstance(other, Scalar) and other.pytype != "int"
+                                          or isinstance(other, Column) and other.dtype != "int")
+    if fraction or computed:
+        what = "a fraction" if fraction else "a float it computes" if isinstance(other, Scalar) \
+            else "a float column"
+        ctx.lower(f"{method}() with {what} on {'an int' if column.dtype else 'a'} column: pandas "
+                  "makes its int64 column float64 only when the condition leaves a value out, "
+                  "and keeps int64 when none is (or the values it puts in are whole): written "
+                  "3 where Polars writes 3.0", 0.95)
+    return other
 
 
 def _branch(value: Value, ctx: RuleContext, frame: Frame) -> Code:
