@@ -14,6 +14,8 @@ import math
 import re
 from pathlib import Path
 
+import libcst as cst
+
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
@@ -22,7 +24,8 @@ from porter.rules.io_options import DIVIDE_FUNCTION
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, derive, derived_column, value_dtype,
 )
-from porter.translate.values import Column, Frame, Opaque, Scalar, Value
+from porter.translate.handover import to_pandas
+from porter.translate.values import Column, Frame, Opaque, PandasValue, Scalar, Value
 
 NUMERIC = {"int", "float"}
 
@@ -142,6 +145,12 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
         if _is_nonzero_constant(right):
             code = emit.binop(lcode, "//", rcode)
             dtype = ltype if ltype in NUMERIC else None
+        elif ltype == rtype == "int" and any(isinstance(v, Column) and v.element for v in (left, right)) \
+                and not any(isinstance(v, Column) and v.float_int for v in (left, right)):
+            # one value of a function (s.map, a row of apply that holds text, which pandas
+            # does not make float): Python's int // int, an int, which raises for a zero
+            # divisor where Polars' gives null
+            code, dtype = emit.binop(lcode, "//", rcode), "int"
         else:
             code = emit.binop(lcode, "/", rcode).method("floor").method("fill_nan", None)
             dtype = "float"
@@ -195,11 +204,23 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
         elif op in ("+", "-") and ltype == "datetime" and rtype == "duration" \
                 or op == "+" and ltype == "duration" and rtype == "datetime":
             dtype = "datetime"  # a date moved by a duration column (pd.to_timedelta(days, unit="D"))
-        if op == "**":
+        if op == "**" and isinstance(left, Column) and not left.element and ltype == "int" \
+                and not left.float_int and _number_const(right) \
+                and isinstance(right.const, int) and right.const >= 0:  # type: ignore[union-attr]
+            # an int64 column to a whole power: no NaN can arise, and a power past int64 wraps
+            # around in numpy's int64 as in Polars' Int64 (both are the power modulo 2**64:
+            # 3037000500 ** 2 is -9223372036709301616 in both). (An int column pandas holds as
+            # float64, float_int, is not: its power does not wrap.)
+            code = emit.binop(lcode, "**", rcode)
+        elif op == "**":
             if column.element:
                 lcode, dtype = _python_power(left, right, lcode, dtype, ctx)
             code = _power(left, right, lcode, rcode, ctx).method("fill_nan", None)
             ctx.lower("a negative base to a fractional power is NaN in both (made missing here)", 0.98)
+            if isinstance(left, Column) and left.float_int and ltype == "int":
+                ctx.lower(f"pandas holds the base as float64 when {left.float_int}: a power "
+                          "past 2**63 is a large float there (9.2e+18) and wraps around in "
+                          "Polars' Int64 here", 0.95)
     else:
         raise Unsupported(f"operator {op} on columns")
     if _is_str_literal(left) and op == "+":
@@ -1035,6 +1056,7 @@ def np_where(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("np.where with one argument returns positions")
     cond, then, other = call.args
     column = base_column(cond, then, other)
+    _object_branches(then, other, ctx)
     frame = column.frame
     then_code, other_code = int64_branches(then, other, [_branch(v, ctx, frame) for v in (then, other)])
     test = ctx.expr(cond, frame)
@@ -1060,6 +1082,33 @@ def np_where(call: PandasCall, ctx: RuleContext) -> Value:
         # condition: Polars' null beside Int64 would stay Int64 (written 5, pandas 5.0)
         code, dtype = code.method("cast", emit.atom("pl.Float64")), "float"
     return derived_column(column, code, dtype=dtype, name=None, others=[cond, then, other])
+
+
+def _none_like(value: Value) -> bool:
+    """None or pd.NA written in the script (pd.NA is evaluated as NaN: its spelling tells)."""
+    return isinstance(value, Opaque) and value.is_const and (
+        value.const is None or isinstance(value.const, float) and value.const != value.const
+        and re.search(r"(^|\.)NA$", value.code.text) is not None)
+
+
+def _object_branches(then: Value, other: Value, ctx: RuleContext) -> None:
+    """numpy makes None (or pd.NA) beside numbers or True/False an object array of the values
+    and None ([1, None, 3]), which pandas keeps as an object column: it writes 1 where an
+    integer column with a missing value (float64) is written 1.0, lists None, and prints None
+    where a float column has NaN. Beside text it makes a text column with a missing value,
+    as Polars' String with null is."""
+    if not any(_none_like(v) for v in (then, other)):
+        return
+    kinds = {value_dtype(v) for v in (then, other) if not _none_like(v)}
+    if kinds & {"int", "bool"}:
+        raise Unsupported("None (or pd.NA) beside whole numbers or True/False: numpy makes an "
+                          "object array of the values and None ([1, None, 3], written 1), "
+                          f"which no Polars type holds (it {MIXED_COLUMN})")
+    if kinds - {"str"}:
+        ctx.lower("None (or pd.NA) beside numbers: numpy makes an object array, which pandas "
+                  "lists and prints as None where Polars' missing value is NaN (written the "
+                  "same: 1.5 and an empty field), and writes 1 where an integer column with a "
+                  "missing value is written 1.0", 0.9)
 
 
 @rule("series.where", "series.mask")
@@ -1199,3 +1248,51 @@ def _common_dtype(*values: Value) -> str | None:
     kinds = {value_dtype(v) for v in values}
     return kinds.pop() if len(kinds) == 1 else None
 
+
+
+@rule("pd.eval")
+def pd_eval(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.eval("double_age = df.age * 2", target=df) -> pd.eval(..., target=<pandas frame>,
+    local_dict={**locals(), "df": <pandas frame>}): stays pandas (a TODO that runs), with the
+    frames it reads handed over.
+
+    pandas looks the names of the text up in the script's variables when it runs: a frame
+    there is a LazyFrame in the converted script, which has no attribute `age`. Each name of
+    the text that holds a frame or a column is given to pandas as its pandas version through
+    `local_dict=`, beside the script's other variables (`**locals()`: pandas reads the
+    caller's globals as before).
+    """
+    ctx.reject_unknown(call, "expr", "parser", "engine", "local_dict", "global_dict",
+                       "resolvers", "level", "target", "inplace", positional=1)
+    text = call.const("expr", 0, None, kinds=(str,))
+    if text is None:
+        raise Unsupported("an expression that is not written out as text")
+    if call.const("inplace", None, False) is not False:
+        # pandas changes the target frame itself, which is a LazyFrame's copy here
+        raise Unsupported("inplace=True changes the target frame: assign the result instead "
+                          "(df = pd.eval(..., target=df))")
+    if "resolvers" in call.kwargs or "local_dict" in call.kwargs or "global_dict" in call.kwargs:
+        raise Unsupported("names given with resolvers=, local_dict= or global_dict=")
+    try:
+        names = sorted({n.id for n in ast.walk(ast.parse(text.strip())) if isinstance(n, ast.Name)})
+    except SyntaxError:
+        raise Unsupported("an expression porter cannot read") from None
+    handed = {}
+    for name in names:
+        value = ctx.evaluate(cst.Name(name), {}) if ctx.evaluate is not None else None
+        if isinstance(value, (Frame, Column)):
+            handed[name] = to_pandas(value)
+    args = [emit.lit(text)]
+    for key, value in call.kwargs.items():
+        if isinstance(value, (Frame, Column)):
+            args.append(Code(f"{key}={to_pandas(value).text}"))
+        else:
+            args.append(Code(f"{key}={value.code.text}"))
+    if handed:
+        items = ", ".join(f"{emit.lit(name).text}: {code.text}" for name, code in handed.items())
+        args.append(Code(f"local_dict={{**locals(), {items}}}"))
+    ctx.needs_review("pd.eval stays pandas: the frames its text names are handed over "
+                     "(local_dict=), as is target=; write the expression with pl.col")
+    func = cst.Module([]).code_for_node(call.node.func) if isinstance(call.node, cst.Call) \
+        else "pd.eval"
+    return PandasValue(Code(f"{func}({', '.join(a.text for a in args)})"))
