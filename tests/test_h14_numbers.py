@@ -45,6 +45,27 @@ def test_whole_float_into_int_column(line, with_data, tmp_path):
         """, tmp_path, FERRY, with_data=with_data)
 
 
+@pytest.mark.parametrize("line, keep", [
+    ('f["x"] = f["w"].where(f["w"].notna(), 0.0)', "f['cars'] > 1"),
+    ('f["x"] = f["w"].mask(f["w"].isna(), 5.0)', "f['cars'] > 1"),
+    ('f["x"] = f["w"].clip(0.0, 2.0)', "f['cars'] > 1"),
+    ('f["x"] = f["w"].clip(0.0, 2.0)', "f['cars'] > 0"),
+])
+def test_whole_float_into_an_int_column_pandas_holds_as_floats(line, keep, tmp_path):
+    """where() without other that left a car count out makes pandas' column float64: 0.0 put
+    in is 0.0 there (written 0.0), and a clip keeps the missing value (written 2.0); where it
+    left none out the column is int64 (written 2). (Filled when nothing was missing, pandas'
+    column stays int64: lowered, as fillna is.)"""
+    same_text(f"""
+        import pandas as pd
+        f = pd.read_csv("f.csv")
+        f["w"] = f["cars"].where({keep})
+        {line}
+        f.to_csv("o.csv", index=False)
+        print(f["x"].tolist())
+        """, tmp_path, FERRY)
+
+
 @pytest.mark.parametrize("line", [
     'f["x"] = f["cars"].clip(upper=f["cars"].quantile(0.9))',
     'f["x"] = f["cars"].clip(lower=f["cars"].mean())',

@@ -952,7 +952,8 @@ def clip(call: PandasCall, ctx: RuleContext) -> Value:
         # pandas clips an int64 column to a whole float bound (0.0) as to the int, and takes a
         # NaN bound, or an infinite one on its own side, for no bound: the column stays int64
         # (written 0). An int literal keeps Polars' Int64 column Int64 and a Float64 one takes
-        # it as a float
+        # it as a float; one pandas holds as float64 (float_int) keeps its missing values, and
+        # the mark with them
         lower, upper = _as_int(lower, -math.inf), _as_int(upper, math.inf)
     bounds = [b for b in (lower, upper) if b is not None]
     code, dtype = column.code, column.dtype
@@ -1149,8 +1150,14 @@ def where_mask(call: PandasCall, ctx: RuleContext) -> Value:
         if kind is not None and column.dtype is not None and kind != column.dtype \
                 and not {kind, column.dtype} <= numbers:
             raise Unsupported(f"a {kind} value into a {column.dtype} column {MIXED_COLUMN}")
-    if not missing and column.dtype in ("int", None):
+    if not missing and column.dtype in ("int", None) and column.float_int is None:
         other = _int_float_other(other, column, call.name, ctx)
+    elif not missing and column.float_int is not None and value_dtype(other) == "float":
+        # pandas holds the column as float64 when a value went missing, and 0.0 put in stays
+        # a float there (Float64 here); with nothing missing it is int64, 0.0 put in an int
+        ctx.lower(f"pandas holds the column as float64 when {column.float_int}, where a float "
+                  "put in makes it Float64 here; when nothing was missing pandas keeps int64 "
+                  "(written 3 where Polars writes 3.0)", 0.95)
     frame = column.frame
     test = ctx.expr(cond, frame).method("fill_null", False)  # missing: False, as pandas has it
     kept = column.code
