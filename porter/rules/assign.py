@@ -18,7 +18,9 @@ from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.io import dtype_spelling, polars_dtype
 from porter.rules.io_options import datetime_text, duration_text, float_text
-from porter.rules.ops import MASKED_DTYPES, PYTHON_ONLY_NUMBERS, float32_possible, int64_lit
+from porter.rules.ops import (
+    MASKED_DTYPES, PYTHON_ONLY_NUMBERS, float32_possible, int64_lit, whole_float,
+)
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
     mark_float_ints, nullable_mark, set_nullable_ints, with_column_updates,
@@ -868,6 +870,12 @@ def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
                               "statement stays pandas)")
         if number == number:
             code, dtype = int64_lit(int(number)), "int"
+    elif frame.dtype(name) is None and (frame.columns is None or name in frame.columns) \
+            and whole_float(value) is not None:
+        # a column of a type porter does not know: pandas puts a whole float into its int64
+        # column as the int (the column stays int64, written 0) and into a float64 one as
+        # the float; an Int64 literal does both (a Float64 column takes it as a float)
+        code, dtype = int64_lit(whole_float(value)), None
     elif frame.columns is not None and name in frame.columns and frame.dtype(name) == "int" \
             and (isinstance(value, Scalar) or isinstance(value, Opaque) and not value.is_const) \
             and dtype != "int" and getattr(value, "pytype", None) != "int":

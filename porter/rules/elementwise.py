@@ -11,6 +11,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from dataclasses import replace
+import re
 from typing import Any
 
 import libcst as cst
@@ -252,6 +253,11 @@ def map_(call: PandasCall, ctx: RuleContext) -> Value:
         # True/False or text values: the result's type (a value not in the dict is missing,
         # NaN in pandas); numbers are left untyped (pandas makes whole numbers float there)
         kinds = {type(v) for v in function.const.values() if v is not None}
+        if re.search(r"\bNA\b", function.code.text) and kinds - {str}:
+            # pd.NA (read as NaN) beside numbers or True/False: pandas keeps the values and
+            # <NA> in an object column ([1, <NA>, 2], written 1), where NaN would make float64
+            raise Unsupported(f"pd.NA among the dict's numbers: it {MIXED_COLUMN} ([1, <NA>, "
+                              "2], written 1), which no Polars type holds")
         if kinds == {int, float}:
             # pandas makes them float64; Polars builds the new values from the first one's
             # type and fails on the other: they are given as floats
@@ -276,7 +282,15 @@ def map_(call: PandasCall, ctx: RuleContext) -> Value:
         result = derived_column(column, column.code.method("replace_strict", mapping,
                                                            default=None),
                                 name=column.name, dtype=dtype)
-        if dtype == "int":
+        if dtype == "int" and column.dtype in ("category", "enum"):
+            # a categorical column (pd.cut, astype("category")) mapped one to one keeps its
+            # categories mapped: an int category column, whose missing value does not make it
+            # float (written 1 and an empty field); a dict that misses a category makes float64
+            ctx.lower("an int dict over a categorical column: pandas makes a categorical column "
+                      "of the ints when every category maps to a value of its own (written 1, "
+                      "where a missing value makes Polars' column written 1.0), float64 "
+                      "otherwise", 0.9)
+        elif dtype == "int":
             # float64 in pandas when a value is not in the dict (or is missing), int64 when
             # every one is: Polars gives Int64 with nulls, which later steps read
             # (lost_float_ints)
@@ -526,6 +540,16 @@ def _check_one_kind(then: Value, otherwise: Value, ctx: RuleContext) -> None:
         raise Unsupported(f"the branches give values of several types ({' and '.join(sorted(known))}): "
                           f"the function {MIXED_COLUMN} (each value kept as it is), which no "
                           f"Polars type holds")
+    spelled = [v.code.text for v in (then, otherwise) if _branch_kind(v) == "missing"]
+    if known - {"str"} and any(re.search(r"(^|\.)NA$", text) for text in spelled):
+        # pandas keeps pd.NA beside numbers or True/False in an object column ([1, <NA>, 3],
+        # written 1), where None or NaN beside numbers make float64
+        raise Unsupported(f"pd.NA beside {known.pop()} values: the function {MIXED_COLUMN} "
+                          "([1, <NA>, 3], written 1), which no Polars type holds")
+    if known == {"bool"} and any(text == "None" for text in spelled):
+        ctx.lower("None beside True/False: pandas keeps an object column of the values and "
+                  "None, which it lists and prints as None where porter's missing True/False "
+                  "is NaN (written the same: an empty field)", 0.9)
     if None in kinds and known:
         ctx.lower(f"one branch's type is not known: where it is not {known.pop()} as the other's, "
                   f"pandas makes a mixed (object) column and Polars one of a single type", 0.8)
@@ -569,13 +593,58 @@ def element_lookup(call: PandasCall, ctx: RuleContext) -> Value:
         keyed = keys_of_column_type(mapping.const, element.dtype, python=True)
         if keyed is not None:
             code_mapping = keyed
-    if isinstance(call.node, cst.Subscript):
+    default = None if isinstance(call.node, cst.Subscript) else call.args[1] \
+        if len(call.args) > 1 else Opaque(emit.lit(None), const=None)
+    values = list(mapping.const.values()) if isinstance(mapping.const, dict) else None
+    kinds = _number_kinds(values or ())
+    given = _number_kinds([default.const]) if isinstance(default, Opaque) and default.is_const \
+        else {"unknown"} if default is not None else set()
+    dtype: str | None = None
+    if values is not None and kinds in ({"int"}, {"float"}, {"int", "float"}):
+        dtype = "float" if "float" in kinds | given else "int" if given <= {"int", "missing"} \
+            else None
+        if kinds == {"int", "float"}:
+            # Polars builds the new values from the first one's type and fails on 2.5 beside
+            # 1: they are given as floats, as pandas makes a column holding both
+            code_mapping = {k: float(v) if isinstance(v, int) and not isinstance(v, bool) else v
+                            for k, v in (code_mapping.items() if isinstance(code_mapping, dict)
+                                         else mapping.const.items())}
+        if "other" in given:
+            raise Unsupported(f"a default that is not a number beside the dict's numbers: it "
+                              f"{MIXED_COLUMN} (each value kept as it is), which no Polars "
+                              "type holds")
+        if len(kinds | given - {"missing"}) > 1 or "unknown" in given:
+            # pandas makes the column of what the function returned: ints and floats are
+            # float64, but ints alone (every value found in a dict of ints, or none found in
+            # a dict of floats with an int default) int64
+            ctx.lower("the dict's values and the default are not all of one number type: "
+                      "pandas makes the column float64 only where the values returned mix "
+                      "them, and int64 where they are all ints (written 3 where Polars writes "
+                      "3.0)", 0.95)
+    if default is None:
         code = element.code.method("replace_strict", code_mapping)
     else:
-        default = call.args[1] if len(call.args) > 1 else Opaque(emit.lit(None), const=None)
         code = element.code.method("replace_strict", code_mapping,
                                    default=ctx.expr(default, element.frame))
-    return derived_column(element, code)
+    result = derived_column(element, code, dtype=dtype)
+    if dtype == "int" and given == {"missing"}:
+        # float64 in pandas when a value is not in the dict, int64 when every one is: Polars
+        # gives Int64 with nulls, which later steps read (lost_float_ints)
+        result = replace(result, float_int="get() found a value not in the dict")
+    return result
+
+
+def _number_kinds(values: Sequence[object]) -> set[str]:
+    """"int", "float", "missing" (None or NaN) or "other" for each value."""
+    kinds = set()
+    for value in values:
+        if value is None or isinstance(value, float) and value != value:
+            kinds.add("missing")
+        elif isinstance(value, bool) or not isinstance(value, (int, float)):
+            kinds.add("other")
+        else:
+            kinds.add("int" if isinstance(value, int) else "float")
+    return kinds
 
 
 @rule("pd.cut")

@@ -14,6 +14,8 @@ import math
 import re
 from pathlib import Path
 
+import libcst as cst
+
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
@@ -22,7 +24,8 @@ from porter.rules.io_options import DIVIDE_FUNCTION
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, derive, derived_column, value_dtype,
 )
-from porter.translate.values import Column, Frame, Opaque, Scalar, Value
+from porter.translate.handover import to_pandas
+from porter.translate.values import Column, Frame, Opaque, PandasValue, Scalar, Value
 
 NUMERIC = {"int", "float"}
 
@@ -142,6 +145,12 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
         if _is_nonzero_constant(right):
             code = emit.binop(lcode, "//", rcode)
             dtype = ltype if ltype in NUMERIC else None
+        elif ltype == rtype == "int" and any(isinstance(v, Column) and v.element for v in (left, right)) \
+                and not any(isinstance(v, Column) and v.float_int for v in (left, right)):
+            # one value of a function (s.map, a row of apply that holds text, which pandas
+            # does not make float): Python's int // int, an int, which raises for a zero
+            # divisor where Polars' gives null
+            code, dtype = emit.binop(lcode, "//", rcode), "int"
         else:
             code = emit.binop(lcode, "/", rcode).method("floor").method("fill_nan", None)
             dtype = "float"
@@ -195,11 +204,23 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
         elif op in ("+", "-") and ltype == "datetime" and rtype == "duration" \
                 or op == "+" and ltype == "duration" and rtype == "datetime":
             dtype = "datetime"  # a date moved by a duration column (pd.to_timedelta(days, unit="D"))
-        if op == "**":
+        if op == "**" and isinstance(left, Column) and not left.element and ltype == "int" \
+                and not left.float_int and _number_const(right) \
+                and isinstance(right.const, int) and right.const >= 0:  # type: ignore[union-attr]
+            # an int64 column to a whole power: no NaN can arise, and a power past int64 wraps
+            # around in numpy's int64 as in Polars' Int64 (both are the power modulo 2**64:
+            # 3037000500 ** 2 is -9223372036709301616 in both). (An int column pandas holds as
+            # float64, float_int, is not: its power does not wrap.)
+            code = emit.binop(lcode, "**", rcode)
+        elif op == "**":
             if column.element:
                 lcode, dtype = _python_power(left, right, lcode, dtype, ctx)
             code = _power(left, right, lcode, rcode, ctx).method("fill_nan", None)
             ctx.lower("a negative base to a fractional power is NaN in both (made missing here)", 0.98)
+            if isinstance(left, Column) and left.float_int and ltype == "int":
+                ctx.lower(f"pandas holds the base as float64 when {left.float_int}: a power "
+                          "past 2**63 is a large float there (9.2e+18) and wraps around in "
+                          "Polars' Int64 here", 0.95)
     else:
         raise Unsupported(f"operator {op} on columns")
     if _is_str_literal(left) and op == "+":
@@ -911,31 +932,77 @@ def abs_(call: PandasCall, ctx: RuleContext) -> Value:
 def clip(call: PandasCall, ctx: RuleContext) -> Value:
     """s.clip(lower, upper) -> .clip(lower, upper).
 
-    Handles: an integer column with float bounds becomes float in pandas; Polars would
-    truncate the bounds, so the column is cast to Float64 first.
+    Handles: an integer column with fractional bounds becomes float in pandas; Polars would
+    truncate the bounds (3.7 to 3), so the column is cast to Float64 first; a bound the script
+    computes is cast for as a float unless it is known to be an int. A whole float bound (0.0)
+    on an int column is the int it equals, and a missing (NaN) or infinite one no bound:
+    pandas keeps int64 (written 0).
     Two single bounds the wrong way round are swapped, as pandas swaps them (clip(3, 1) is
     clip(1, 3)): constants here, bounds computed by the script when it runs.
-    Caveats: pandas makes it float only when a value reaches a bound: one that no bound
-    changes stays integer there (written 3, Polars 3.0) (0.95).
+    Caveats: pandas makes it float only when a value reaches a fractional bound: one that no
+    bound changes stays integer there (written 3, Polars 3.0) (0.95); so does a computed bound
+    that is whole (0.95, or 0.9 when porter does not know it is a number).
     """
     ctx.reject_unknown(call, "lower", "upper", positional=2)
     column = call.receiver
     assert isinstance(column, Column)
     lower = call.arg("lower", 0, None)
     upper = call.arg("upper", 1, None)
+    if column.dtype in ("int", None):
+        # pandas clips an int64 column to a whole float bound (0.0) as to the int, and takes a
+        # NaN bound, or an infinite one on its own side, for no bound: the column stays int64
+        # (written 0). An int literal keeps Polars' Int64 column Int64 and a Float64 one takes
+        # it as a float; one pandas holds as float64 (float_int) keeps its missing values, and
+        # the mark with them
+        lower, upper = _as_int(lower, -math.inf), _as_int(upper, math.inf)
     bounds = [b for b in (lower, upper) if b is not None]
     code, dtype = column.code, column.dtype
-    if any(isinstance(b, Opaque) and isinstance(b.const, float) for b in bounds) and column.dtype != "float":
+    if not bounds:
+        return derived_column(column, code, dtype=dtype)  # no bound: the values as they are
+    kinds = {_bound_kind(b) for b in bounds}
+    if column.dtype != "float" and ("float" in kinds or column.dtype == "int" and None in kinds):
+        # Polars casts a bound to the column's type: a float bound on an Int64 column would be
+        # truncated (a cap of 3.7 gives 3 where pandas gives 3.7)
         code, dtype = code.method("cast", emit.atom("pl.Float64")), "float"
-        ctx.lower("pandas makes the integer column float only where a value reaches a float "
-                  "bound; when none does it stays integer (written 3 where Polars writes 3.0)",
-                  0.95)
+        if "float" in kinds:
+            ctx.lower("pandas makes the integer column float only where a value reaches a "
+                      "float bound that is not whole; when none does it stays integer "
+                      "(written 3 where Polars writes 3.0)", 0.95)
+        else:
+            ctx.lower("a bound the script computes, of a type porter does not know, on an "
+                      "integer column: the column is made Float64 so that a float bound is "
+                      "not truncated; pandas keeps int64 where the bound is a whole number "
+                      "or no value reaches it (written 3 where Polars writes 3.0)", 0.9)
+    elif column.dtype is None and None in kinds:
+        ctx.lower("a bound the script computes on a column of unknown type: Polars takes a "
+                  "float bound as an integer column's type (a cap of 3.7 gives 3 where pandas "
+                  "gives 3.7)", 0.9)
     if any(isinstance(b, Column) for b in bounds):
         raise Unsupported("bounds given per row")
     args = [ctx.expr(b, column.frame) if b is not None else None for b in (lower, upper)]
     if lower is not None and upper is not None:
         args = _ordered_bounds(lower, upper, column, ctx)
     return derived_column(column, code.method("clip", *args), dtype=dtype)
+
+
+def _as_int(value: Value | None, no_bound: float) -> Value | None:
+    """A bound of clip() on an int column: a whole float constant as the int it equals, a
+    NaN or `no_bound` (inf for the upper bound) as None; anything else as it is."""
+    if isinstance(value, Opaque) and isinstance(value.const, float) \
+            and (value.const != value.const or value.const == no_bound):
+        return None
+    whole = whole_float(value) if value is not None else None
+    return value if whole is None else Opaque(code=emit.atom(repr(whole)), const=whole)
+
+
+def _bound_kind(value: Value) -> str | None:
+    """"int" or "float" when a bound is known to be one, else None."""
+    if isinstance(value, Opaque) and value.is_const:
+        return "int" if isinstance(value.const, int) else "float" \
+            if isinstance(value.const, float) else None
+    if isinstance(value, Scalar) and value.pytype in ("int", "float"):
+        return value.pytype
+    return None
 
 
 def _number_const(value: Value) -> bool:
@@ -990,6 +1057,7 @@ def np_where(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("np.where with one argument returns positions")
     cond, then, other = call.args
     column = base_column(cond, then, other)
+    _object_branches(then, other, ctx)
     frame = column.frame
     then_code, other_code = int64_branches(then, other, [_branch(v, ctx, frame) for v in (then, other)])
     test = ctx.expr(cond, frame)
@@ -1015,6 +1083,33 @@ def np_where(call: PandasCall, ctx: RuleContext) -> Value:
         # condition: Polars' null beside Int64 would stay Int64 (written 5, pandas 5.0)
         code, dtype = code.method("cast", emit.atom("pl.Float64")), "float"
     return derived_column(column, code, dtype=dtype, name=None, others=[cond, then, other])
+
+
+def _none_like(value: Value) -> bool:
+    """None or pd.NA written in the script (pd.NA is evaluated as NaN: its spelling tells)."""
+    return isinstance(value, Opaque) and value.is_const and (
+        value.const is None or isinstance(value.const, float) and value.const != value.const
+        and re.search(r"(^|\.)NA$", value.code.text) is not None)
+
+
+def _object_branches(then: Value, other: Value, ctx: RuleContext) -> None:
+    """numpy makes None (or pd.NA) beside numbers or True/False an object array of the values
+    and None ([1, None, 3]), which pandas keeps as an object column: it writes 1 where an
+    integer column with a missing value (float64) is written 1.0, lists None, and prints None
+    where a float column has NaN. Beside text it makes a text column with a missing value,
+    as Polars' String with null is."""
+    if not any(_none_like(v) for v in (then, other)):
+        return
+    kinds = {value_dtype(v) for v in (then, other) if not _none_like(v)}
+    if kinds & {"int", "bool"}:
+        raise Unsupported("None (or pd.NA) beside whole numbers or True/False: numpy makes an "
+                          "object array of the values and None ([1, None, 3], written 1), "
+                          f"which no Polars type holds (it {MIXED_COLUMN})")
+    if kinds - {"str"}:
+        ctx.lower("None (or pd.NA) beside numbers: numpy makes an object array, which pandas "
+                  "lists and prints as None where Polars' missing value is NaN (written the "
+                  "same: 1.5 and an empty field), and writes 1 where an integer column with a "
+                  "missing value is written 1.0", 0.9)
 
 
 @rule("series.where", "series.mask")
@@ -1055,6 +1150,14 @@ def where_mask(call: PandasCall, ctx: RuleContext) -> Value:
         if kind is not None and column.dtype is not None and kind != column.dtype \
                 and not {kind, column.dtype} <= numbers:
             raise Unsupported(f"a {kind} value into a {column.dtype} column {MIXED_COLUMN}")
+    if not missing and column.dtype in ("int", None) and column.float_int is None:
+        other = _int_float_other(other, column, call.name, ctx)
+    elif not missing and column.float_int is not None and value_dtype(other) == "float":
+        # pandas holds the column as float64 when a value went missing, and 0.0 put in stays
+        # a float there (Float64 here); with nothing missing it is int64, 0.0 put in an int
+        ctx.lower(f"pandas holds the column as float64 when {column.float_int}, where a float "
+                  "put in makes it Float64 here; when nothing was missing pandas keeps int64 "
+                  "(written 3 where Polars writes 3.0)", 0.95)
     frame = column.frame
     test = ctx.expr(cond, frame).method("fill_null", False)  # missing: False, as pandas has it
     kept = column.code
@@ -1074,6 +1177,42 @@ def where_mask(call: PandasCall, ctx: RuleContext) -> Value:
         # one): Polars keeps Int64 with nulls, which later steps read (lost_float_ints)
         result = replace(result, float_int=f"{call.name}() left a value missing")
     return result
+
+
+def whole_float(value: Value) -> int | None:
+    """A float constant that an int64 column holds without loss (0.0, -3.0, 1e6), as an int;
+    None for anything else (2.5, NaN, inf, 1e30, an int, a column)."""
+    if not (isinstance(value, Opaque) and isinstance(value.const, float)):
+        return None
+    number = value.const
+    if math.isfinite(number) and number.is_integer() and -2**63 <= number < 2**63:
+        return int(number)
+    return None
+
+
+def _int_float_other(other: Value, column: Column, method: str, ctx: RuleContext) -> Value:
+    """The value where() / mask() puts into an int (or not known) column. pandas puts a float
+    into its int64 column as an int when no value is lost (0.0 is 0: the column stays int64,
+    written 0), and makes the column float64 only for a fraction (or a float column, a value
+    computed when the script runs that is not whole) and only when the condition leaves a
+    value out: a type that depends on the data."""
+    whole = whole_float(other)
+    if whole is not None:
+        # an int literal: an Int64 column stays Int64 and a Float64 one takes it as a float
+        # (its supertype), as pandas does with 0.0 in either
+        return Opaque(code=emit.atom(repr(whole)), const=whole)
+    fraction = isinstance(other, Opaque) and isinstance(other.const, float) \
+        and math.isfinite(other.const)
+    computed = column.dtype == "int" and (isinstance(other, Scalar) and other.pytype != "int"
+                                          or isinstance(other, Column) and other.dtype != "int")
+    if fraction or computed:
+        what = "a fraction" if fraction else "a float it computes" if isinstance(other, Scalar) \
+            else "a float column"
+        ctx.lower(f"{method}() with {what} on {'an int' if column.dtype else 'a'} column: pandas "
+                  "makes its int64 column float64 only when the condition leaves a value out, "
+                  "and keeps int64 when none is (or the values it puts in are whole): written "
+                  "3 where Polars writes 3.0", 0.95)
+    return other
 
 
 def _branch(value: Value, ctx: RuleContext, frame: Frame) -> Code:
@@ -1116,3 +1255,51 @@ def _common_dtype(*values: Value) -> str | None:
     kinds = {value_dtype(v) for v in values}
     return kinds.pop() if len(kinds) == 1 else None
 
+
+
+@rule("pd.eval")
+def pd_eval(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.eval("double_age = df.age * 2", target=df) -> pd.eval(..., target=<pandas frame>,
+    local_dict={**locals(), "df": <pandas frame>}): stays pandas (a TODO that runs), with the
+    frames it reads handed over.
+
+    pandas looks the names of the text up in the script's variables when it runs: a frame
+    there is a LazyFrame in the converted script, which has no attribute `age`. Each name of
+    the text that holds a frame or a column is given to pandas as its pandas version through
+    `local_dict=`, beside the script's other variables (`**locals()`: pandas reads the
+    caller's globals as before).
+    """
+    ctx.reject_unknown(call, "expr", "parser", "engine", "local_dict", "global_dict",
+                       "resolvers", "level", "target", "inplace", positional=1)
+    text = call.const("expr", 0, None, kinds=(str,))
+    if text is None:
+        raise Unsupported("an expression that is not written out as text")
+    if call.const("inplace", None, False) is not False:
+        # pandas changes the target frame itself, which is a LazyFrame's copy here
+        raise Unsupported("inplace=True changes the target frame: assign the result instead "
+                          "(df = pd.eval(..., target=df))")
+    if "resolvers" in call.kwargs or "local_dict" in call.kwargs or "global_dict" in call.kwargs:
+        raise Unsupported("names given with resolvers=, local_dict= or global_dict=")
+    try:
+        names = sorted({n.id for n in ast.walk(ast.parse(text.strip())) if isinstance(n, ast.Name)})
+    except SyntaxError:
+        raise Unsupported("an expression porter cannot read") from None
+    handed = {}
+    for name in names:
+        value = ctx.evaluate(cst.Name(name), {}) if ctx.evaluate is not None else None
+        if isinstance(value, (Frame, Column)):
+            handed[name] = to_pandas(value)
+    args = [emit.lit(text)]
+    for key, value in call.kwargs.items():
+        if isinstance(value, (Frame, Column)):
+            args.append(Code(f"{key}={to_pandas(value).text}"))
+        else:
+            args.append(Code(f"{key}={value.code.text}"))
+    if handed:
+        items = ", ".join(f"{emit.lit(name).text}: {code.text}" for name, code in handed.items())
+        args.append(Code(f"local_dict={{**locals(), {items}}}"))
+    ctx.needs_review("pd.eval stays pandas: the frames its text names are handed over "
+                     "(local_dict=), as is target=; write the expression with pl.col")
+    func = cst.Module([]).code_for_node(call.node.func) if isinstance(call.node, cst.Call) \
+        else "pd.eval"
+    return PandasValue(Code(f"{func}({', '.join(a.text for a in args)})"))
