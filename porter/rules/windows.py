@@ -20,7 +20,7 @@ from porter.rules import rule
 from porter.rules.elementwise import _checked, body_expression, function_value
 from porter.rules.groupby import agg_expr, group_order
 from porter.rules.io_options import QUANTILE_FUNCTION
-from porter.rules.ops import float32_possible
+from porter.rules.ops import abs_, float32_possible, round_
 from porter.translate import handover
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_of, derive, derived_column, select_columns,
@@ -1175,6 +1175,38 @@ def group_window_labels(call: PandasCall, ctx: RuleContext) -> Value:
         {"drop": True} if call.name == "reset_index" else {}))
     return Relabelled(result.code, frame=rows, name=result.name, dtype=result.dtype,
                       refs=result.refs, versions=result.versions, in_order=in_order, pandas=pandas)
+
+
+@rule("groupby.window.round", "groupby.window.abs")
+def group_window_elementwise(call: PandasCall, ctx: RuleContext) -> Value:
+    """g[col].rolling(n).mean().round(2) / .abs(), before or after reset_index(level=0,
+    drop=True) -> the same .round(2) / .abs() of the window expression.
+
+    round and abs change each value on its own and keep its row label, so the result keeps
+    the window's labels: in group order with the keys (then reset_index / droplevel as
+    before), or the frame's own labels (then assigned back onto each row). Each form the
+    window is held in (group order, the frame's order, pandas' own) gets the same call.
+    """
+    result = call.receiver
+    assert isinstance(result, (GroupOrdered, Relabelled))
+    plain_rule = round_ if call.name == "round" else abs_
+
+    def applied(code: Code, frame: Frame) -> Column:
+        column = Column(code, frame=frame, name=result.name, dtype=result.dtype,
+                        refs=result.refs, versions=result.versions)
+        value = plain_rule(PandasCall(column, call.name, call.args, call.kwargs, call.node), ctx)
+        assert isinstance(value, Column)
+        return value
+
+    code = applied(result.code, result.frame).code
+    pandas = None if result.pandas is None else result.pandas.method(
+        call.name, *(a.code for a in call.args), **{k: v.code for k, v in call.kwargs.items()})
+    if isinstance(result, GroupOrdered):
+        in_order = applied(result.in_order, result.grouped.frame).code
+        return replace(result, code=code, in_order=in_order, pandas=pandas, sites=())
+    in_order = None if result.in_order is None else applied(result.in_order.code,
+                                                            result.in_order.frame)
+    return replace(result, code=code, in_order=in_order, pandas=pandas, sites=())
 
 
 # -- apply(func) over a window ------------------------------------------------------------------
