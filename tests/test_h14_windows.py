@@ -36,3 +36,54 @@ def test_round_and_abs_of_a_group_window(line, tmp_path):
         d.to_csv("o.csv", index=False)
         """, tmp_path, BOATS)
     assert "TODO" not in result.converted_text
+
+
+# -- windows of a frame: df.rolling(n or "30D", on="t")[col] -----------------------------------
+
+# times tied (two shouts at 06:00 on the 3rd), a missing value on a tied row, ints and floats
+SHOUTS = {"s.csv": "at,crew,fuel\n2024-01-01 06:00,4,12.5\n2024-01-02 18:00,5,\n"
+                   "2024-01-03 06:00,,30.0\n2024-01-03 06:00,6,7.25\n2024-01-03 06:00,3,\n"
+                   "2024-01-04 07:00,4,-2.0\n2024-01-09 00:00,7,1.5\n2024-01-09 00:30,0,\n"
+                   "2024-01-10 00:00,5,4.0\n"}
+
+
+@pytest.mark.parametrize("line", [
+    'd["r"] = d.rolling("2D", on="at")["fuel"].count()',
+    'd["r"] = d.rolling("2D", on="at", min_periods=2)["fuel"].count()',
+    'd["r"] = d.rolling("2D", on="at")["crew"].sum()',
+    'd["r"] = d.rolling("36h", on="at", min_periods=0)["fuel"].sum()',
+    'd["r"] = d.rolling("3D", on="at")["fuel"].mean()',
+    'd["r"] = d.rolling("1D", on="at", min_periods=2)["crew"].mean()',
+    'd["r"] = d.rolling("2D", on="at")["fuel"].min()',
+    'd["r"] = d.rolling(window="90min", on="at")["crew"].max()',
+    'd["r"] = d.rolling(3, min_periods=1)["fuel"].max()',
+    'd["r"] = d.rolling(2)["crew"].sum()',
+])
+def test_frame_windows(line, tmp_path):
+    """pandas' time window at a row ends at that row: the rows tied on its time that come
+    later are not in it (the 06:00 shouts of the 3rd see 1, 2, then 3 rows); min_periods
+    counts the rows for count, the values present otherwise."""
+    result = same_text(f"""
+        import pandas as pd
+        d = pd.read_csv("s.csv", parse_dates=["at"])
+        {line}
+        print(d["r"].tolist())
+        d.to_csv("o.csv", index=False)
+        """, tmp_path, SHOUTS)
+    assert "TODO" not in result.converted_text
+
+
+def test_time_window_of_a_sorted_frame(tmp_path):
+    """The usual script: sort by time, then count what happened in the 7 days up to each row."""
+    files = {"s.csv": "at,no\n2024-03-09 10:00,4\n2024-03-01 08:00,1\n2024-03-03 09:00,2\n"
+                      "2024-03-03 09:00,3\n2024-03-20 11:00,5\n2024-03-08 07:59,6\n"}
+    result = same_text("""
+        import pandas as pd
+        d = pd.read_csv("s.csv")
+        d["at"] = pd.to_datetime(d["at"], format="%Y-%m-%d %H:%M")
+        d = d.sort_values(["at", "no"]).reset_index(drop=True)
+        d["last_week"] = d.rolling("7D", on="at")["no"].count()
+        d["no_sum"] = d.rolling("7D", on="at")["no"].sum()
+        d.to_csv("o.csv", index=False)
+        """, tmp_path, files)
+    assert "rolling_sum_by" in result.converted_text
