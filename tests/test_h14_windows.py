@@ -87,3 +87,45 @@ def test_time_window_of_a_sorted_frame(tmp_path):
         d.to_csv("o.csv", index=False)
         """, tmp_path, files)
     assert "rolling_sum_by" in result.converted_text
+
+
+# -- the running sum of a True/False column read with a blank --------------------------------
+
+FLAGS = {"f.csv": "load,organic,kg\n1,True,3\n2,False,4\n3,,5\n4,True,1\n5,False,2\n6,True,0\n"}
+
+
+def test_running_sum_of_flags_read_with_a_blank_is_a_todo(tmp_path):
+    """pandas reads the column as object (True, False, NaN); its cumsum keeps the first value as
+    it is, counts in ints, and turns float after the first missing value. No Polars column
+    holds that, and the file's types do not say whether a value is missing."""
+    import io
+
+    import pandas as pd
+    from support import convert
+    flags = pd.read_csv(io.StringIO(FLAGS["f.csv"]))["organic"]
+    assert flags.dtype == object
+    assert [type(v).__name__ for v in flags.cumsum()] == ["bool", "int", "float", "float",
+                                                          "float", "float"]
+    (tmp_path / "f.csv").write_text(FLAGS["f.csv"])
+    for line in ('d["n"] = d["organic"].cumsum()', 'd["n"] = d["organic"].cumprod()'):
+        text = convert(f'import pandas as pd\nd = pd.read_csv("f.csv")\n{line}\n'
+                       'd.to_csv("o.csv", index=False)\n', data_dir=str(tmp_path)).converted_text
+        assert "TODO(porter): series.cum" in text and "may hold a missing value" in text
+
+
+@pytest.mark.parametrize("line", [
+    'd["n"] = d["organic"].fillna(False).astype(bool).cumsum()',
+    'd["n"] = (d["kg"] > 2).cumsum()',
+    'd["n"] = d["organic"].cummax()',
+])
+def test_running_values_of_flags_that_port(line, tmp_path):
+    """Filled first, or made by a comparison, the flags are a bool column in pandas too: the
+    running sum is a count (int64); cummax keeps True/False and the blank."""
+    result = same_text(f"""
+        import pandas as pd
+        d = pd.read_csv("f.csv")
+        {line}
+        print(d["n"].tolist())
+        d.to_csv("o.csv", index=False)
+        """, tmp_path, FLAGS)
+    assert "TODO" not in result.converted_text

@@ -183,13 +183,18 @@ def cumulative(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("a running sum of text: pandas joins the strings so far, Polars has "
                           "no running join")
     code = ctx.bool_expr(column, column.frame) if column.dtype == "bool" else column.code
+    if column.dtype == "bool" and call.name in ("cumsum", "cumprod") and _as_read(column):
+        # pandas reads a True/False column with a blank as an object column, whose running
+        # sum mixes types (True, 1, NaN, 2.0, 3.0: the first value kept, ints, then floats
+        # after the first missing value) and is written so; no Polars column holds that, and
+        # porter cannot tell from the file's types whether a value is missing
+        raise Unsupported(f"`{column.name}` may hold a missing value, which makes it an object "
+                          f"column in pandas: its running {'sum' if call.name == 'cumsum' else 'product'} "
+                          "keeps the first value as True/False and turns float after the first "
+                          "missing value (True, 1, NaN, 2.0); fillna(False).astype(bool) first makes it "
+                          "a count in both")
     if column.dtype == "bool" and call.name == "cumsum":
         code = code.method("cast", emit.atom("pl.Int64"))
-        if _as_read(column):
-            ctx.lower(f"`{column.name}` is an object column in pandas where it has a missing "
-                      "value (read_csv): its running sum keeps the first value as True/False "
-                      "and is float after the first missing value (True, NaN, 1.0, 2.0), where "
-                      "porter counts the True values as integers", 0.9)
     return derived_column(column, code.method(CUMULATIVE[call.name]), dtype=column.dtype)
 
 
