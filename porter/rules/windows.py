@@ -1147,7 +1147,11 @@ def window_aggregate(call: PandasCall, ctx: RuleContext) -> Value:
             ctx.lower("the sum of a time window is added in two parts here (the earlier times, "
                       "then the rows of its own time), pandas' as it moves: floats can differ in "
                       "the last digits", 0.98)
-        code = _time_aggregate(_numeric(column, ctx), how, options, call.receiver.time_span)
+        # whole numbers hold no infinity (which pandas' windows take as missing): their
+        # present values are read as they are
+        plain = column.code if column.dtype == "int" else None
+        code = _time_aggregate(_numeric(column, ctx), how, options, call.receiver.time_span,
+                               plain)
         return derived_column(column, code, dtype="float")
     _last_digits(column, how, kind, options, ctx)
     code = _aggregate_code(_numeric(column, ctx), how, options, kind, ddof)
@@ -1157,7 +1161,8 @@ def window_aggregate(call: PandasCall, ctx: RuleContext) -> Value:
 TIME_AGGREGATES = ("count", "sum", "mean", "min", "max")
 
 
-def _time_aggregate(values: Code, how: str, options: dict[str, object], span: str) -> Code:
+def _time_aggregate(values: Code, how: str, options: dict[str, object], span: str,
+                    plain: Code | None = None) -> Code:
     """A time window's count / sum / mean / min / max, as pandas computes it row by row.
 
     Each part: `earlier` is the window over the earlier times (after t - span, before t:
@@ -1181,12 +1186,24 @@ def _time_aggregate(values: Code, how: str, options: dict[str, object], span: st
         own = so_far(part, "sum")
         return emit.binop(earlier(part, "sum"), "+", own).method("fill_null", own)
 
-    present = values.method("is_not_null").method("cast", emit.atom("pl.Float64"))
+    def counted(flags: Code) -> Code:
+        # a count is exact in floats: the rows of its own time so far are the running count
+        # less the running count before the first of them (the times are in order, as pandas
+        # requires, so rows of one time are together); cheaper than a window per time
+        running = flags.method("cum_sum")
+        first_of_time = emit.col(on).method("ne_missing", emit.col(on).method("shift"))
+        before = emit.when(first_of_time, emit.binop(running, "-", flags)).method("forward_fill")
+        own = emit.binop(running, "-", before)
+        return emit.binop(earlier(flags, "sum"), "+", own).method("fill_null", own)
+
+    present = (plain if plain is not None else values).method("is_not_null").method(
+        "cast", emit.atom("pl.Float64"))
     count = total(present)
     if how == "count":
+        count = counted(present)
         if least <= 1:  # a row's own row is always in its window
             return count
-        rows = total(emit.col(on).method("is_not_null").method("cast", emit.atom("pl.Float64")))
+        rows = counted(emit.col(on).method("is_not_null").method("cast", emit.atom("pl.Float64")))
         return emit.when(emit.binop(rows, ">=", least), count)
     extremes = {way: emit.pl(f"{way}_horizontal", earlier(values, way), so_far(values, way))
                 for way in ("min", "max")}

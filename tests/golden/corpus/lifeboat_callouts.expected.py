@@ -159,16 +159,10 @@ shouts = shouts.sort(["paged_at", "shout_no"], nulls_last=True, maintain_order=T
 shouts = shouts.with_columns(
     shouts_30d=(
         pl.col("shout_no").cast(pl.Float64).replace([float("inf"), float("-inf")], None).is_not_null().cast(pl.Float64).rolling_sum_by("paged_at", window_size="30d", closed="none")
-        + pl.col("shout_no").cast(pl.Float64).replace([float("inf"), float("-inf")], None).is_not_null().cast(pl.Float64).cum_sum().over("paged_at")
+        + (pl.col("shout_no").cast(pl.Float64).replace([float("inf"), float("-inf")], None).is_not_null().cast(pl.Float64).cum_sum() - pl.when(pl.col("paged_at").ne_missing(pl.col("paged_at").shift())).then(pl.col("shout_no").cast(pl.Float64).replace([float("inf"), float("-inf")], None).is_not_null().cast(pl.Float64).cum_sum() - pl.col("shout_no").cast(pl.Float64).replace([float("inf"), float("-inf")], None).is_not_null().cast(pl.Float64)).forward_fill())
     )
     .fill_null(
-        pl.col("shout_no")
-        .cast(pl.Float64)
-        .replace([float("inf"), float("-inf")], None)
-        .is_not_null()
-        .cast(pl.Float64)
-        .cum_sum()
-        .over("paged_at"),
+        pl.col("shout_no").cast(pl.Float64).replace([float("inf"), float("-inf")], None).is_not_null().cast(pl.Float64).cum_sum() - pl.when(pl.col("paged_at").ne_missing(pl.col("paged_at").shift())).then(pl.col("shout_no").cast(pl.Float64).replace([float("inf"), float("-inf")], None).is_not_null().cast(pl.Float64).cum_sum() - pl.col("shout_no").cast(pl.Float64).replace([float("inf"), float("-inf")], None).is_not_null().cast(pl.Float64)).forward_fill(),
     ),
 )
 shouts = shouts.with_columns(
