@@ -20,7 +20,7 @@ from porter.rules import rule
 from porter.rules.elementwise import _checked, body_expression, function_value
 from porter.rules.groupby import agg_expr, group_order
 from porter.rules.io_options import QUANTILE_FUNCTION
-from porter.rules.ops import float32_possible
+from porter.rules.ops import abs_, float32_possible, round_
 from porter.translate import handover
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_of, derive, derived_column, select_columns,
@@ -183,13 +183,18 @@ def cumulative(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("a running sum of text: pandas joins the strings so far, Polars has "
                           "no running join")
     code = ctx.bool_expr(column, column.frame) if column.dtype == "bool" else column.code
+    if column.dtype == "bool" and call.name in ("cumsum", "cumprod") and _as_read(column):
+        # pandas reads a True/False column with a blank as an object column, whose running
+        # sum mixes types (True, 1, NaN, 2.0, 3.0: the first value kept, ints, then floats
+        # after the first missing value) and is written so; no Polars column holds that, and
+        # porter cannot tell from the file's types whether a value is missing
+        raise Unsupported(f"`{column.name}` may hold a missing value, which makes it an object "
+                          f"column in pandas: its running {'sum' if call.name == 'cumsum' else 'product'} "
+                          "keeps the first value as True/False and turns float after the first "
+                          "missing value (True, 1, NaN, 2.0); fillna(False).astype(bool) first makes it "
+                          "a count in both")
     if column.dtype == "bool" and call.name == "cumsum":
         code = code.method("cast", emit.atom("pl.Int64"))
-        if _as_read(column):
-            ctx.lower(f"`{column.name}` is an object column in pandas where it has a missing "
-                      "value (read_csv): its running sum keeps the first value as True/False "
-                      "and is float after the first missing value (True, NaN, 1.0, 2.0), where "
-                      "porter counts the True values as integers", 0.9)
     return derived_column(column, code.method(CUMULATIVE[call.name]), dtype=column.dtype)
 
 
@@ -881,6 +886,124 @@ def rolling(call: PandasCall, ctx: RuleContext) -> Value:
     return Accessor(column.code, column=column, kind="rolling", options=options)
 
 
+# -- windows of a frame: df.rolling(n or "30D", on="t")[col] ------------------------------------
+#
+# pandas makes the window of the whole frame and then takes one column of it: the same window
+# over that column. A count window is Series.rolling's. A time window ("30D") reads the dates of
+# `on`: each row's window holds the rows before it (in the frame's order) whose time is after
+# its own time less the span, up to its own row (closed="right"). A row tied on time with later
+# rows does not see them; Polars' rolling_*_by windows are by value and would. So each value
+# is made of two parts: the window of the earlier times (closed="none": after t - span, before
+# t) and the running value among the rows of its own time so far (cum_* .over(on)).
+
+TIME_UNITS = {"D": "d", "d": "d", "h": "h", "H": "h", "min": "m", "T": "m", "s": "s", "S": "s",
+              "ms": "ms", "L": "ms", "us": "us", "U": "us"}
+TIME_SPAN = re.compile(r"^(\d*)(D|d|h|H|min|T|s|S|ms|L|us|U)$")
+
+
+@dataclass(frozen=True)
+class FrameWindow(Accessor):
+    """`df.rolling(...)`: a window of the whole frame waiting for a column (`[col]`, key
+    `series.rolling.getitem`). `grouped` is the frame: a hand-over makes the window again from
+    it with the same arguments (`options`), as it does for a window within groups."""
+
+    grouped: Frame = field(kw_only=True)
+    key_prefix: str = field(default="frame.rolling", kw_only=True)
+    time_span: str | None = field(default=None, kw_only=True)  # Polars' duration ("30d")
+
+
+@dataclass(frozen=True)
+class TimeWindow(Accessor):
+    """`df.rolling("30D", on="t")[col]`: a time window over one column waiting for its method
+    (`series.rolling.sum` ...). Handed over, pandas' Series.rolling refuses on= (it raises
+    rather than compute another window)."""
+
+    time_span: str = field(kw_only=True)
+
+
+def _time_span(window: str) -> str | None:
+    """pandas' fixed span ("30D", "2h", "15min") as Polars writes a duration ("30d"), or None
+    for another offset (a month or a week is not a fixed span: pandas raises)."""
+    found = TIME_SPAN.match(window.strip())
+    if found is None or found.group(1) in ("0",) or found.group(1).startswith("0"):
+        return None
+    return f"{found.group(1) or 1}{TIME_UNITS[found.group(2)]}"
+
+
+@rule("frame.rolling")
+def frame_rolling(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.rolling(n, min_periods, center) / df.rolling("30D", on="t", min_periods) -> a window
+    of the frame waiting for its column.
+
+    Handles: a count window is Series.rolling's; a time window reads `on`, a datetime column
+    (min_periods defaults to 1, closed to "right", as in pandas).
+    Caveats: a time window over the row labels (no on=), closed other than "right", center,
+    win_type, step and method are TODOs.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "window", "min_periods", "center", "on", "closed", positional=3)
+    window = call.const("window", 0, kinds=(int, str))
+    on = call.const("on", None, None, kinds=(str,))
+    closed = call.const("closed", None, None, kinds=(str,))
+    center = call.const("center", 2, False, kinds=(bool,))
+    least = call.const("min_periods", 1, None, kinds=(int,))
+    dummy = Column(frame.code, frame=frame)
+    if isinstance(window, int):
+        if on is not None or closed is not None:
+            raise Unsupported("on= or closed= with a window of rows")
+        column_window = rolling(PandasCall(dummy, "rolling", call.args, {
+            k: v for k, v in call.kwargs.items()}, call.node), ctx)
+        assert isinstance(column_window, Accessor)
+        return FrameWindow(frame.code, column=dummy, kind="rolling",
+                           options=column_window.options, grouped=frame)
+    span = _time_span(window)
+    if span is None:
+        raise Unsupported(f"the time window {window!r}: porter reads a fixed span (30D, 6h, 15min)")
+    if on is None:
+        raise Unsupported("a time window over the row labels (no on=)")
+    if frame.dtype(on) != "datetime":
+        raise Unsupported(f"on={on!r} is not a column porter knows holds dates")
+    if closed not in (None, "right"):
+        raise Unsupported(f"closed={closed!r}: only pandas' default for time windows (right)")
+    if center:
+        raise Unsupported("center=True with a time window")
+    least = 1 if least is None else least
+    if least < 0:
+        raise Unsupported(f"min_periods={least} (pandas raises)")
+    ctx.lower(f"pandas raises where `{on}` is not in order or holds a missing time, and reads a "
+              "column in decreasing order backwards: the windows here are by time in the "
+              "frame's order", 0.95)
+    options = (("window", window), ("min_periods", least), ("on", on), ("span", span))
+    return FrameWindow(frame.code, column=dummy, kind="rolling", grouped=frame,
+                       options=tuple((k, v) for k, v in options if k != "span"),
+                       time_span=span)
+
+
+@rule("series.rolling.getitem")
+def frame_window_column(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.rolling(...)[col] -> the same window over that column (`series.rolling.mean` ...).
+
+    Caveats: several columns (`[[a, b]]`) and the column of the times itself are TODOs.
+    """
+    window = call.receiver
+    if not isinstance(window, FrameWindow):
+        raise Unsupported("a column of a Series' window")
+    name = call.const("key", 0, kinds=(str,))
+    frame = window.grouped
+    if frame.columns is not None and name not in frame.columns:
+        raise Unsupported(f"no column {name!r} is known here")
+    options = dict(window.options)
+    if name == options.get("on"):
+        raise Unsupported("the window of the column of the times")
+    column = column_of(frame, name)
+    _numeric(column, ctx)
+    if window.time_span is None:
+        return Accessor(column.code, column=column, kind="rolling", options=window.options)
+    return TimeWindow(column.code, column=column, kind="rolling", options=window.options,
+                      time_span=window.time_span)
+
+
 @rule("series.expanding")
 def expanding(call: PandasCall, ctx: RuleContext) -> Value:
     """s.expanding(min_periods=1) -> a window from the first row to each row, waiting for its
@@ -1017,9 +1140,86 @@ def window_aggregate(call: PandasCall, ctx: RuleContext) -> Value:
         ddof = int(call.const("ddof", 0, 1, kinds=(int, bool)))  # pandas reads True as 1
     else:
         ctx.reject_unknown(call, "numeric_only")
+    if isinstance(call.receiver, TimeWindow):
+        if how not in TIME_AGGREGATES:
+            raise Unsupported(f"{how}() of a time window")
+        if how in ("sum", "mean") and column.dtype not in ("int", "bool"):
+            ctx.lower("the sum of a time window is added in two parts here (the earlier times, "
+                      "then the rows of its own time), pandas' as it moves: floats can differ in "
+                      "the last digits", 0.98)
+        # whole numbers hold no infinity (which pandas' windows take as missing): their
+        # present values are read as they are
+        plain = column.code if column.dtype == "int" else None
+        code = _time_aggregate(_numeric(column, ctx), how, options, call.receiver.time_span,
+                               plain)
+        return derived_column(column, code, dtype="float")
     _last_digits(column, how, kind, options, ctx)
     code = _aggregate_code(_numeric(column, ctx), how, options, kind, ddof)
     return derived_column(column, code, dtype="float")
+
+
+TIME_AGGREGATES = ("count", "sum", "mean", "min", "max")
+
+
+def _time_aggregate(values: Code, how: str, options: dict[str, object], span: str,
+                    plain: Code | None = None) -> Code:
+    """A time window's count / sum / mean / min / max, as pandas computes it row by row.
+
+    Each part: `earlier` is the window over the earlier times (after t - span, before t:
+    closed="none"); `so_far` the running value among the rows of the row's own time up to it
+    (pandas' window ends at the row, a later row of the same time is not in it). pandas'
+    min_periods counts the rows of the window for count, the values present otherwise."""
+    on = str(options["on"])
+    least = int(options["min_periods"])  # type: ignore[call-overload]
+
+    def earlier(part: Code, how: str) -> Code:
+        return part.method(f"rolling_{how}_by", on, window_size=span, closed="none")
+
+    def so_far(part: Code, how: str) -> Code:
+        running = part.method(f"cum_{how}")
+        if how in ("min", "max"):  # cum_min is missing on a missing value: the one before it
+            running = running.method("forward_fill")
+        return running.method("over", on)
+
+    def total(part: Code) -> Code:
+        # no earlier row: the rows of its own time alone (0 + -0.0 would lose pandas' -0.0)
+        own = so_far(part, "sum")
+        return emit.binop(earlier(part, "sum"), "+", own).method("fill_null", own)
+
+    def counted(flags: Code) -> Code:
+        # a count is exact in floats: the rows of its own time so far are the running count
+        # less the running count before the first of them (the times are in order, as pandas
+        # requires, so rows of one time are together); cheaper than a window per time
+        running = flags.method("cum_sum")
+        first_of_time = emit.col(on).method("ne_missing", emit.col(on).method("shift"))
+        before = emit.when(first_of_time, emit.binop(running, "-", flags)).method("forward_fill")
+        own = emit.binop(running, "-", before)
+        return emit.binop(earlier(flags, "sum"), "+", own).method("fill_null", own)
+
+    present = (plain if plain is not None else values).method("is_not_null").method(
+        "cast", emit.atom("pl.Float64"))
+    count = total(present)
+    if how == "count":
+        count = counted(present)
+        if least <= 1:  # a row's own row is always in its window
+            return count
+        rows = counted(emit.col(on).method("is_not_null").method("cast", emit.atom("pl.Float64")))
+        return emit.when(emit.binop(rows, ">=", least), count)
+    extremes = {way: emit.pl(f"{way}_horizontal", earlier(values, way), so_far(values, way))
+                for way in ("min", "max")}
+    if how in extremes:
+        result = extremes[how]
+    else:
+        result = total(values.method("fill_null", 0))
+        if how == "mean":
+            # pandas' running mean of a window whose values are all equal is that value itself
+            # (the last one: -0.0 stays -0.0), not their sum over their count
+            same = emit.binop(extremes["min"], "==", extremes["max"])
+            result = emit.when(same, values.method("forward_fill"),
+                               emit.binop(result, "/", count))
+    if how == "sum" and least == 0:
+        return result  # no value at all sums to 0, as pandas gives
+    return emit.when(emit.binop(count, ">=", max(least, 1)), result)
 
 
 # -- rolling and expanding windows within groups -------------------------------------------------
@@ -1175,6 +1375,39 @@ def group_window_labels(call: PandasCall, ctx: RuleContext) -> Value:
         {"drop": True} if call.name == "reset_index" else {}))
     return Relabelled(result.code, frame=rows, name=result.name, dtype=result.dtype,
                       refs=result.refs, versions=result.versions, in_order=in_order, pandas=pandas)
+
+
+@rule("groupby.window.round", "groupby.window.abs")
+def group_window_elementwise(call: PandasCall, ctx: RuleContext) -> Value:
+    """g[col].rolling(n).mean().round(2) / .abs() -> the window expression's .round(2) / .abs().
+
+    Before or after reset_index(level=0, drop=True) / droplevel.
+
+    round and abs change each value on its own and keep its row label, so the result keeps
+    the window's labels: in group order with the keys (then reset_index / droplevel as
+    before), or the frame's own labels (then assigned back onto each row). Each form the
+    window is held in (group order, the frame's order, pandas' own) gets the same call.
+    """
+    result = call.receiver
+    assert isinstance(result, (GroupOrdered, Relabelled))
+    plain_rule = round_ if call.name == "round" else abs_
+
+    def applied(code: Code, frame: Frame) -> Column:
+        column = Column(code, frame=frame, name=result.name, dtype=result.dtype,
+                        refs=result.refs, versions=result.versions)
+        value = plain_rule(PandasCall(column, call.name, call.args, call.kwargs, call.node), ctx)
+        assert isinstance(value, Column)
+        return value
+
+    code = applied(result.code, result.frame).code
+    pandas = None if result.pandas is None else result.pandas.method(
+        call.name, *(a.code for a in call.args), **{k: v.code for k, v in call.kwargs.items()})
+    if isinstance(result, GroupOrdered):
+        in_order = applied(result.in_order, result.grouped.frame).code
+        return replace(result, code=code, in_order=in_order, pandas=pandas, sites=())
+    in_order = None if result.in_order is None else applied(result.in_order.code,
+                                                            result.in_order.frame)
+    return replace(result, code=code, in_order=in_order, pandas=pandas, sites=())
 
 
 # -- apply(func) over a window ------------------------------------------------------------------
@@ -1392,6 +1625,8 @@ def window_apply(call: PandasCall, ctx: RuleContext) -> Value:
     Caveats: any other read of the window (another position, len, a loop, np.median of a
     window that may hold NaN), args/kwargs, engine, and min_periods=0 are TODOs.
     """
+    if isinstance(call.receiver, TimeWindow):
+        raise Unsupported("apply over a time window")
     column, options = _window_of(call)
     kind = call.receiver.kind  # type: ignore[union-attr]
     ctx.reject_unknown(call, "func", "raw", positional=2)

@@ -1,0 +1,446 @@
+"""Lifeboat station call-out log: how busy the station was, launch times against the
+station's own average, and each coxswain's first shouts.
+
+Written by the station's deputy launching authority, one cell at a time. 'n/a' means nobody
+noted it. Launch, on-scene and back times are minutes after the pager went off.
+"""
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+
+def pandas_upper(text):
+    """text.str.to_uppercase() as pandas' str.upper() writes it (pyarrow's kernel, one letter
+    at a time): "ß" is "ẞ" (Polars: "SS"), and a letter Polars writes as two or three ("ﬁ" as
+    "FI", "ŉ", Greek letters with accents or an iota) is kept, or made its one capital, as
+    pandas does: the text is cut around those letters and each piece upper-cased."""
+    kept, iota = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗ]", "[ᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]"
+    text = text.str.replace_all("ß", "ẞ", literal=True)
+    piece = pl.element()
+    by_piece = (
+        text.str.extract_all(f"{kept}|{iota}|[^ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]+")
+        .list.eval(
+            pl.when(piece.str.contains(f"^{kept}$")).then(piece)
+            .when(piece.str.contains(f"^{iota}$")).then(piece.str.to_titlecase())
+            .otherwise(piece.str.to_uppercase())
+        )
+        .list.join("")
+    )
+    return pl.when(text.str.contains(f"{kept}|{iota}")).then(by_piece).otherwise(
+        text.str.to_uppercase())
+
+
+def pandas_div(numerator, divisor):
+    """numerator / divisor, each value divided as pandas divides it: Polars multiplies by the
+    reciprocal of a single divisor, which can be one binary digit off the quotient (and a later
+    round() then goes the other way)."""
+    return numerator / (numerator.is_null() * 0 + divisor)
+
+
+# One row per column that gives pandas the dtype of the whole column: the first value, or a
+# missing value where the column holds one (pandas makes such an int column float64 and a
+# True/False one object); no row when the frame has none.
+PANDAS_DTYPE_PROBE = pl.when(~pl.all().is_null().any()).then(pl.all().head(1))
+
+# Datetime columns with a time zone as pandas' to_csv writes them: the time always, then the
+# offset (+01:00); no fraction of a second when none has one, milliseconds when they are enough.
+PANDAS_CSV_ZONED_DATETIMES = (
+    pl.when((pl.selectors.datetime(time_zone="*").dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%:z"))
+    .when((pl.selectors.datetime(time_zone="*").dt.microsecond() % 1000 == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.3f%:z"))
+    .otherwise(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.6f%:z"))
+)
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one, milliseconds when they are enough.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .when((pl.selectors.datetime().dt.microsecond() % 1000 == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.3f"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+# Duration columns as pandas' to_csv writes them: "2 days" when every value is a whole number
+# of days, else "-1 days +23:00:00", with microseconds when one value has them.
+PANDAS_CSV_DURATIONS = (
+    pl.when((pl.selectors.duration().dt.total_microseconds() % 86_400_000_000 == 0).all())
+    .then(
+        (pl.selectors.duration().dt.total_microseconds() // 86_400_000_000).cast(pl.String)
+        + " days"
+    )
+    .otherwise(
+        (pl.selectors.duration().dt.total_microseconds() // 86_400_000_000).cast(pl.String)
+        + pl.when(pl.selectors.duration().dt.total_microseconds() < 0)
+        .then(pl.lit(" days +"))
+        .otherwise(pl.lit(" days "))
+        + (pl.selectors.duration().dt.total_microseconds() % 86_400_000_000 // 3_600_000_000)
+        .cast(pl.String).str.zfill(2)
+        + ":"
+        + (pl.selectors.duration().dt.total_microseconds() % 3_600_000_000 // 60_000_000)
+        .cast(pl.String).str.zfill(2)
+        + ":"
+        + (pl.selectors.duration().dt.total_microseconds() % 60_000_000 // 1_000_000)
+        .cast(pl.String).str.zfill(2)
+        + pl.when((pl.selectors.duration().dt.total_microseconds() % 1_000_000 == 0).all())
+        .then(pl.lit(""))
+        .otherwise(
+            "." + (pl.selectors.duration().dt.total_microseconds() % 1_000_000)
+            .cast(pl.String).str.zfill(6)
+        )
+    )
+)
+
+# Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
+# writes 0.00005 and 1.5e-7; NaN as an empty field.
+PANDAS_CSV_FLOATS = (
+    pl.selectors.float().fill_nan(None).cast(pl.String)
+    .str.replace(r"e-(\d)$", "e-0${1}")
+    .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
+    .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+)
+
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
+TARGET_LAUNCH = 10   # minutes, the station's own target
+ROUGH = 5
+
+shouts = (
+    pl.scan_csv(
+        "data/shouts.csv",
+        null_values=PANDAS_NA_VALUES,
+        infer_schema_length=None,
+    )
+    .collect()
+    .lazy()
+)
+print(shouts.select(PANDAS_DTYPE_PROBE).collect().to_pandas().dtypes)
+
+shouts = shouts.unique(keep="first", maintain_order=True)
+shouts = shouts.with_columns(
+    boat=pl.col("boat")
+    .str.strip_chars()
+    .str.replace_many({"İ": "i", "Σ": "σ"})
+    .str.to_lowercase(),
+)
+shouts = shouts.with_columns(
+    coxswain=pandas_upper(pl.col("coxswain").str.strip_chars().str.head(1)) + pl.col("coxswain").str.strip_chars().str.slice(1).str.replace_many({"İ": "i", "Σ": "σ"}).str.to_lowercase(),
+)
+shouts = shouts.with_columns(coxswain=pl.col("coxswain").replace({"Maree": "Marée"}))
+# stamps with or without seconds: keep the minutes
+shouts = shouts.with_columns(
+    paged_at=pl.when(
+        pl.col("paged_at")
+        .str.head(16)
+        .str.contains(
+            "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?:2[0-3]|[0-1][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]))$",
+        ),
+    )
+    .then(pl.col("paged_at").str.head(16))
+    .str.to_datetime("%Y-%m-%d %H:%M", time_unit="us", strict=False),
+)
+shouts = shouts.drop_nulls("paged_at")
+shouts = shouts.sort(["paged_at", "shout_no"], nulls_last=True, maintain_order=True)
+
+# how busy: shouts in the 30 days up to each one, the gap since the last one
+shouts = shouts.with_columns(
+    shouts_30d=(
+        pl.col("shout_no").cast(pl.Float64).replace([float("inf"), float("-inf")], None).is_not_null().cast(pl.Float64).rolling_sum_by("paged_at", window_size="30d", closed="none")
+        + (pl.col("shout_no").cast(pl.Float64).replace([float("inf"), float("-inf")], None).is_not_null().cast(pl.Float64).cum_sum() - pl.when(pl.col("paged_at").ne_missing(pl.col("paged_at").shift())).then(pl.col("shout_no").cast(pl.Float64).replace([float("inf"), float("-inf")], None).is_not_null().cast(pl.Float64).cum_sum() - pl.col("shout_no").cast(pl.Float64).replace([float("inf"), float("-inf")], None).is_not_null().cast(pl.Float64)).forward_fill())
+    )
+    .fill_null(
+        pl.col("shout_no").cast(pl.Float64).replace([float("inf"), float("-inf")], None).is_not_null().cast(pl.Float64).cum_sum() - pl.when(pl.col("paged_at").ne_missing(pl.col("paged_at").shift())).then(pl.col("shout_no").cast(pl.Float64).replace([float("inf"), float("-inf")], None).is_not_null().cast(pl.Float64).cum_sum() - pl.col("shout_no").cast(pl.Float64).replace([float("inf"), float("-inf")], None).is_not_null().cast(pl.Float64)).forward_fill(),
+    ),
+)
+shouts = shouts.with_columns(
+    hours_since_last=pandas_div(
+        pl.col("paged_at")
+        .diff()
+        .dt.total_microseconds()
+        .pipe(lambda us: us // 1_000_000 + us % 1_000_000 / (us * 0 + 1_000_000)),
+        3600,
+    ),
+)
+shouts = shouts.with_columns(hours_since_last=pl.col("hours_since_last").round(1))
+shouts = shouts.with_columns(
+    most_aided_so_far=pl.col("persons_aided")
+    .cast(pl.Float64)
+    .replace([float("inf"), float("-inf")], None)
+    .rolling_max(2 ** 31 - 1, min_samples=1),
+)
+shouts = (
+    shouts
+    .with_columns(
+        launch_trend=pl.col("launch_min")
+        .cast(pl.Float64)
+        .replace([float("inf"), float("-inf")], None)
+        .ewm_mean(span=8)
+        .forward_fill()
+        .round(2),
+    )
+    .collect()
+    .lazy()
+)
+print(
+    shouts.select(
+        "shout_no",
+        "paged_at",
+        "shouts_30d",
+        "hours_since_last",
+        "launch_trend",
+    )
+    .head(8)
+    .collect(),
+)
+
+# on-scene before launch is a typing slip: blank it; a missing one is guessed from the launch
+shouts = shouts.with_columns(
+    on_scene_min=pl.when(
+        (pl.col("on_scene_min") >= pl.col("launch_min")).fill_null(False),
+    )
+    .then(pl.col("on_scene_min")),
+)
+shouts = shouts.with_columns(
+    on_scene_min=pl.col("on_scene_min").fill_null(pl.col("launch_min") + 12),
+)
+shouts = shouts.with_columns(
+    false_alarm=pl.col("cause").str.contains("(?i)false").fill_null(False),
+)
+shouts = shouts.with_columns(
+    persons_aided=pl.when(pl.col("false_alarm").fill_null(False))
+    .then(0)
+    .otherwise(pl.col("persons_aided")),
+)
+shouts = shouts.with_columns(
+    sea=pl.col("sea_state")
+    .cast(pl.String)
+    .str.strip_chars()
+    .cast(pl.Float64, strict=False)
+    .fill_nan(None),
+)
+shouts = shouts.with_columns(
+    rough=pl.when(pl.col("sea") >= ROUGH)
+    .then(pl.lit("rough"))
+    .otherwise(pl.lit("moderate")),
+)
+shouts = shouts.with_columns(
+    rough=pl.when(pl.col("sea").is_null())
+    .then(pl.lit("unknown"))
+    .otherwise(
+        pl.coalesce(pl.selectors.by_name("rough", require_all=False), pl.lit(None)),
+    ),
+)
+shouts = shouts.with_columns(
+    late=(pl.col("launch_min") > TARGET_LAUNCH).fill_null(False),
+)
+shouts = shouts.with_columns(
+    aided_per_crew=(pl.col("persons_aided") / pl.col("crew")).fill_nan(None),
+)
+shouts = shouts.with_columns(
+    launch_min=pl.when(pl.col("rough") == "rough")
+    .then(pl.col("launch_min") - 2)
+    .otherwise(
+        pl.coalesce(
+            pl.selectors.by_name("launch_min", require_all=False),
+            pl.lit(None),
+        ),
+    ),
+)   # allowance in heavy weather
+
+# each boat against its own average
+shouts = shouts.with_columns(
+    launch_vs_boat=pl.when(pl.col("boat").is_not_null())
+    .then((pl.col("launch_min") - pl.col("launch_min").mean()).over("boat"))
+    .round(2),
+)
+shouts = shouts.with_columns(
+    launch_pct=pl.when(pl.col("boat").is_not_null())
+    .then(
+        pl.col("launch_min").rank("average").over("boat") / pl.col("launch_min").count().over("boat"),
+    ),
+)
+shouts = shouts.with_columns(
+    prev_paged=pl.when(pl.col("boat").is_not_null())
+    .then(pl.col("paged_at").shift(1).over("boat")),
+)
+shouts = shouts.with_columns(
+    turnaround_h=pandas_div(
+        (pl.col("paged_at") - pl.col("prev_paged")).dt.total_microseconds()
+        .pipe(lambda us: us // 1_000_000 + us % 1_000_000 / (us * 0 + 1_000_000)),
+        3600,
+    ),
+)
+shouts = shouts.with_columns(
+    fuel_running_mean=pl.when(pl.col("boat").is_not_null())
+    .then(
+        pl.when(
+            pl.col("fuel_l").cast(pl.Float64).replace([float("inf"), float("-inf")], None).rolling_min(2 ** 31 - 1, min_samples=1) == pl.col("fuel_l").cast(pl.Float64).replace([float("inf"), float("-inf")], None).rolling_max(2 ** 31 - 1, min_samples=1),
+        )
+        .then(
+            pl.col("fuel_l")
+            .cast(pl.Float64)
+            .replace([float("inf"), float("-inf")], None)
+            .forward_fill(),
+        )
+        .otherwise(
+            pl.col("fuel_l")
+            .cast(pl.Float64)
+            .replace([float("inf"), float("-inf")], None)
+            .rolling_mean(2 ** 31 - 1, min_samples=1),
+        )
+        .over("boat"),
+    )
+    .round(1),
+)
+shouts = (
+    shouts
+    .with_columns(
+        boat_shout_no=pl.when(pl.col("boat").is_not_null())
+        .then(pl.int_range(pl.len(), dtype=pl.Int64).over("boat")),
+    )
+    .collect()
+    .lazy()
+)
+
+log = shouts.select(
+    "shout_no",
+    "paged_at",
+    "boat",
+    "coxswain",
+    "shouts_30d",
+    "hours_since_last",
+    "most_aided_so_far",
+    "launch_trend",
+    "launch_min",
+    "on_scene_min",
+    "rough",
+    "late",
+    "aided_per_crew",
+    "launch_vs_boat",
+    "launch_pct",
+    "turnaround_h",
+    "fuel_running_mean",
+    "boat_shout_no",
+)
+(
+    log
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_DURATIONS,
+        PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
+    )
+    .sink_csv("data/shout_log.csv")
+)
+
+# first three shouts of each coxswain, and their last
+firsts = (
+    shouts
+    .filter(
+        pl.col("coxswain").is_not_null() & (pl.int_range(pl.len()).over("coxswain") < 3),
+    )
+    .select("coxswain", "shout_no", "paged_at", "cause")
+)
+lasts = (
+    shouts
+    .filter(
+        pl.col("coxswain").is_not_null() & (pl.int_range(pl.len(), 0, -1).over("coxswain") <= 1),
+    )
+    .select("coxswain", "shout_no", "paged_at")
+)
+firsts = (
+    firsts
+    .join(
+        lasts.rename({"shout_no": "shout_no_last", "paged_at": "paged_at_last"}),
+        on="coxswain",
+        how="left",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+    .collect()
+    .lazy()
+)
+(
+    firsts
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_DURATIONS,
+        PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
+    )
+    .sink_csv("data/coxswain_firsts.csv")
+)
+print(firsts.head(5).collect())
+
+# monthly
+shouts = shouts.with_columns(month=pl.col("paged_at").dt.to_string("%Y-%m"))
+monthly = (
+    shouts
+    .drop_nulls("month")
+    .group_by("month")
+    .agg(
+        pl.col("shout_no").count().cast(pl.Int64).alias("shouts"),
+        pl.col("persons_aided").sum().alias("aided"),
+        pl.col("late").sum().cast(pl.Int64).alias("late"),
+        pl.col("fuel_l").sum().alias("fuel"),
+    )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
+    .sort("month")
+)
+monthly = monthly.with_columns(
+    change=(pl.col("shouts") / pl.col("shouts").shift(1) - 1).fill_nan(None).round(3),
+)
+monthly = monthly.with_columns(
+    fuel_per_aided=(pl.col("fuel") / pl.col("aided")).fill_nan(None).round(2),
+)
+monthly = monthly.with_columns(
+    late_share=(pl.col("late") / pl.col("shouts")).fill_nan(None),
+)
+monthly = monthly.with_columns(late_share=pl.col("late_share").clip(None, 0.5).round(3))
+monthly = (
+    monthly
+    .with_columns(
+        busiest=pl.col("shouts").rank("min", descending=True).cast(pl.Float64),
+    )
+    .collect()
+    .lazy()
+)
+(
+    monthly
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_DURATIONS,
+        PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
+    )
+    .sink_csv("data/monthly.csv")
+)
+print(monthly.collect())
