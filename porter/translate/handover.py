@@ -22,6 +22,8 @@ from porter.translate.values import (
 
 
 WINDOW_KINDS = ("rolling", "expanding", "ewm")
+# porter's type of a column pandas holds as one of its nullable types other than the integers
+_NULLABLE_KINDS = {"boolean": "bool", "string": "str", "Float64": "float", "Float32": "float"}
 
 
 def _items(value: Items, convert: Callable[[Value], Code]) -> Code:
@@ -114,12 +116,15 @@ def to_pandas(value: Value) -> Code:
         if categories:
             code = code.method("astype", {c: "category" for c in categories})
         nullable = {c: kind for c, kind in value.nullable_ints or ()
-                    if value.columns is not None and c in value.columns and value.dtype(c) == "int"}
+                    if value.columns is not None and c in value.columns
+                    and value.dtype(c) == _NULLABLE_KINDS.get(kind, "int")}
         if nullable:
             # pandas' nullable integers (astype("Int64"), isocalendar()): Polars hands an int
-            # column holding a missing value over as float64
+            # column holding a missing value over as float64; and its other nullable types (a
+            # parquet file pandas wrote): <NA>, not None or NaN
             code = code.method("astype", nullable)
-        code = _as_pandas_made_them(code, value.dtypes, value.columns)
+        code = _as_pandas_made_them(code, tuple((c, t) for c, t in value.dtypes
+                                                if c not in nullable), value.columns)
         if value.index:
             code = _labels(code, value)
             if value.index_unnamed and len(value.index) == 1:
