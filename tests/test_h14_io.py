@@ -177,3 +177,26 @@ def test_floats_written_and_read_back_keep_their_type(tmp_path: Path) -> None:
     assert ",1.0\n" in (pd_dir / "out.csv").read_text()
     assert "TODO(porter): pd.read_csv" not in text  # ported: floats are certain
     _same_outputs(pd_dir, pl_dir, text)
+
+
+# -- values handed to Python code: pandas only where a value is missing ----------------------
+
+@pytest.mark.parametrize("cells", [
+    ["3", "1", "2"], ["3", "", "2"], ["0.5", "2.25"], ["0.5", ""], ["ewe", "ram"], ["ewe", ""],
+    ["True", "False"], ["9223372036854775807", "-9223372036854775808"],
+], ids=repr)
+def test_pandas_values_are_pandas_own(cells: list[str]) -> None:
+    # what a loop over a column read from a file gives Python code: pandas 3.1's values (nan
+    # for a missing one, floats for whole numbers beside one); where none is missing the
+    # Polars Series gives the same Python objects, so pandas need not be imported for them
+    import polars as pl
+    from porter.translate.handover import VALUES_DEFINITION
+    # (a second column: a one-column line with an empty field is a blank line pandas skips)
+    text = "\n".join(["pen,flock", *(f"{i},{c}" for i, c in enumerate(cells))]) + "\n"
+    expected = list(pd.read_csv(io.StringIO(text))["flock"])
+    space: dict[str, object] = {}
+    exec(VALUES_DEFINITION, space)
+    column = pl.read_csv(io.StringIO(text), null_values=[""])["flock"]
+    got = list(space["pandas_values"](column))  # type: ignore[operator]
+    assert [(type(v), repr(v)) for v in got] == [(type(v), repr(v)) for v in expected]
+    assert ("pandas" in type(space["pandas_values"](column)).__module__) == ("" in cells)  # type: ignore[operator]

@@ -33,6 +33,32 @@ def _items(value: Items, convert: Callable[[Value], Code]) -> Code:
     return Code(f"{value.brackets[0]}{inner}{value.brackets[1]}")
 
 
+# a column's values given to Python code (a loop over it) as pandas gives them, pandas imported
+# only where a value is missing
+VALUES_FUNCTION = "pandas_values"
+VALUES_DEFINITION = '''\
+def pandas_values(values):
+    """A column's values as pandas gives them to Python: pandas' own Series where one is
+    missing (nan for it, and floats for whole numbers), otherwise the Polars Series, whose
+    numbers, texts and True/False are the same Python values, so that pandas is not imported
+    for them."""
+    return values.to_pandas() if values.null_count() else values
+'''
+
+
+def python_values(column: Column) -> Code:
+    """The values of a column a loop reads, as pandas gives them (nan, not None, for a missing
+    one): through `pandas_values` for numbers and text without a row label or a pandas dtype
+    of their own, whose values are the same Python objects in both libraries where none is
+    missing; through pandas otherwise (dates are Timestamps there)."""
+    # (True/False with a missing value is pandas' object column, nan for it: to_pandas)
+    if (column.dtype in ("int", "float", "str") or column.dtype == "bool" and column.null_is_false) \
+            and not column.frame.index and not column.nullable_int \
+            and getattr(column, "pandas", None) is None:
+        return emit.call(VALUES_FUNCTION, series_frame(column).method("collect").method("to_series"))
+    return to_pandas(column)
+
+
 def series_frame(column: Column) -> Code:
     """A column as a frame of its index columns (if any) and its values."""
     name = column.name if column.name is not None else "0"
