@@ -486,3 +486,16 @@ def makes_periods(text: str, period_names: set[str] | frozenset[str] = frozenset
     except SyntaxError:
         return True
     return any(isinstance(n, ast.Name) and n.id in period_names for n in ast.walk(tree))
+
+
+# Python code whose whole numbers can pass Int64 (9.2e18): a power other than 0, 1 or 2 or a
+# fraction, a shift, factorial / comb / perm / prod / pow. pandas keeps such numbers exactly in
+# an object column, which no Polars type holds: pl.Series and pl.from_pandas refuse them
+PYTHON_INT_MAKERS = re.compile(
+    r"\*\*\s*(?!\(?\s*(?:[012](?![\d.eE])|\d*\.\d))|<<|\b(?:factorial|comb|perm|prod|pow)\s*\(")
+
+
+def makes_python_ints(text: str) -> bool:
+    """Whether pandas code may compute whole numbers past Int64 (`10 ** g`, `math.factorial`,
+    a dict of `2**70`): the frame that gets them stays pandas."""
+    return bool(PYTHON_INT_MAKERS.search(text))
