@@ -185,6 +185,11 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         options["nrows"] = nrows
 
     schema = ctx.input_schema("csv", _paths(source), options)
+    if schema is None and isinstance(_paths(source), str) and not options.keys() - {"sep"}:
+        written = _written_frame(_paths(source), sep or ",", ctx)  # type: ignore[arg-type]
+        if written is not None:
+            overrides = {**_read_back_types(written, ctx), **overrides}
+            kwargs["schema_overrides"] = overrides
     if nrows is not None and getattr(schema, "polars", None) is None:
         # Polars infers column types from the whole file even when it reads n rows (and parses
         # past them), pandas only from the rows it reads.
@@ -591,9 +596,22 @@ def read_parquet(call: PandasCall, ctx: RuleContext) -> Value:
         args = [a.code for a in call.args]
         kwargs = {k: v.code for k, v in call.kwargs.items()}
         return PandasValue(emit.call(f"{pandas}.read_parquet", *args, **kwargs))
+    # pandas keeps its nullable dtypes (Int64, boolean, string, Float64) in the metadata of a
+    # file it wrote, and its read_parquet restores them: an Int64 column with a missing value
+    # is written 7 by to_csv (<NA> by astype(str)) where the plain int64 of a file without that
+    # metadata is float64 in pandas (7.0, nan). The schema reader reads them from the file
+    # (FileSchema.pandas_nullable: {} when there are none); marked, the rules follow them
+    kept = getattr(schema, "pandas_nullable", None) if schema is not None else None
+    if kept is None and (schema is None or set(schema.values()) & {"int", "bool", "str", "float"}):
+        ctx.lower("a file pandas wrote keeps its nullable dtypes (Int64, boolean, string) in "
+                  "its metadata, which read_parquet restores: an Int64 column with a missing "
+                  "value is written 7 and printed <NA> by pandas, 7.0 and nan here (porter "
+                  "did not read the file's metadata)", 0.95)
     frame = Frame(emit.pl("scan_parquet", source.code),
                   columns=tuple(schema) if schema else None,
-                  dtypes=tuple((schema or {}).items()))
+                  dtypes=tuple((schema or {}).items()),
+                  nullable_ints=None if kept is None else tuple(
+                      (c, kind) for c, kind in kept.items() if schema is None or c in schema))
     if schema is None or "float" in schema.values():
         frame = derive(frame, frame.code.method(
             "with_columns", emit.pl("col", emit.atom("pl.Float32"), emit.atom("pl.Float64"))
@@ -602,6 +620,84 @@ def read_parquet(call: PandasCall, ctx: RuleContext) -> Value:
     if columns is not None:
         frame = select_columns(frame, frame.code.method("select", *columns), list(columns))
     return frame
+
+
+# what pandas' read_csv makes of a column of this type that to_csv wrote (without options):
+# floats (Python's repr, a missing one as an empty field) are float64 whatever the values, and
+# so is a column with no value at all, which Polars' scan would read as text
+_READ_BACK_CERTAIN = {"float": "pl.Float64"}
+
+
+def _written_frame(path: str, sep: str, ctx: RuleContext) -> Frame | None:
+    """The frame the script wrote to `path` with to_csv and reads back here, when porter can
+    tell which one it is: one write of a name to that path and one read of it, both statements
+    at the top of the script, the write first, the name not changed between them, the write
+    without options that change what it writes (index=False only) and read with its separator."""
+    module = ctx.python_module
+    if not isinstance(module, ast.Module) or ctx.evaluate is None:
+        return None
+
+    def target(node: ast.Call, *names: str) -> object:
+        given = node.args[0] if node.args else next(
+            (k.value for k in node.keywords if k.arg in names), None)
+        return given.value if isinstance(given, ast.Constant) else None
+
+    calls = [n for n in ast.walk(module) if isinstance(n, ast.Call)
+             and isinstance(n.func, ast.Attribute) and n.func.attr in ("to_csv", "read_csv")]
+    writes = [n for n in calls if n.func.attr == "to_csv"  # type: ignore[attr-defined]
+              and target(n, "path_or_buf") in (path, None)]
+    reads = [n for n in calls if n.func.attr == "read_csv"  # type: ignore[attr-defined]
+             and target(n, "filepath_or_buffer") in (path, None)]
+    if len(writes) != 1 or len(reads) != 1 or target(writes[0], "path_or_buf") != path:
+        return None
+    write, read = writes[0], reads[0]
+    owner = {id(n): i for i, stmt in enumerate(module.body) for n in ast.walk(stmt)}
+    first, last = owner.get(id(write)), owner.get(id(read))
+    if first is None or last is None or first >= last or any(
+            isinstance(module.body[i], (ast.If, ast.For, ast.While, ast.With, ast.Try,
+                                        ast.FunctionDef, ast.AsyncFunctionDef, ast.ClassDef))
+            for i in (first, last)):
+        return None
+    name = write.func.value  # type: ignore[attr-defined]
+    if not isinstance(name, ast.Name) or any(
+            k.arg != "index" or not (isinstance(k.value, ast.Constant) and k.value.value is False)
+            for k in write.keywords if k.arg not in ("path_or_buf", "sep")) \
+            or not any(k.arg == "index" for k in write.keywords) \
+            or next((k.value.value for k in write.keywords if k.arg == "sep"
+                     and isinstance(k.value, ast.Constant)), ",") != sep \
+            or len(write.args) > 1:
+        return None
+    for stmt in module.body[first + 1:last]:  # the frame written is the one the name holds
+        for node in ast.walk(stmt):
+            if isinstance(node, (ast.Name, ast.Subscript, ast.Attribute)) \
+                    and isinstance(node.ctx, (ast.Store, ast.Del)) \
+                    and name.id in {n.id for n in ast.walk(node) if isinstance(n, ast.Name)}:
+                return None
+            if isinstance(node, ast.Call) and any(k.arg == "inplace" for k in node.keywords):
+                return None
+    frame = ctx.evaluate(cst.Name(name.id), {})
+    if not isinstance(frame, Frame) or frame.columns is None or frame.index:
+        return None
+    return frame
+
+
+def _read_back_types(frame: Frame, ctx: RuleContext) -> dict[str, Code]:
+    """The scan's types for a file the script wrote from `frame` (to_csv) and reads back: the
+    ones pandas' reading is certain of whatever the values (floats); a TODO where pandas may
+    read text as numbers the scan reads as text."""
+    unsure = [c for c in frame.columns or () if frame.dtype(c) in ("str", "category", None, "other")]
+    if unsure:
+        # pandas infers each column's type from the text it reads back: "+3" and " 5" are
+        # numbers to it (text to Polars' scan), and a column with no value float64 (text)
+        raise ctx.todo(f"the script reads back text it wrote ({', '.join(map(repr, unsure))}): "
+                       "pandas infers numbers from text like \"+3\" or \" 5\", and float64 for "
+                       "a column with no value, where Polars' scan infers text; the read stays "
+                       "pandas'")
+    ctx.lower("the file is read back as the script wrote it: its float columns as Float64 (as "
+              "pandas reads them, even with no value), the others inferred (an int or True/False "
+              "column with no value at all is float64 in pandas, text here)", 0.95)
+    return {c: emit.atom(_READ_BACK_CERTAIN[frame.dtype(c)])  # type: ignore[index]
+            for c in frame.columns or () if frame.dtype(c) in _READ_BACK_CERTAIN}
 
 
 def _pandas_name(ctx: RuleContext) -> str | None:

@@ -22,6 +22,8 @@ from porter.translate.values import (
 
 
 WINDOW_KINDS = ("rolling", "expanding", "ewm")
+# porter's type of a column pandas holds as one of its nullable types other than the integers
+_NULLABLE_KINDS = {"boolean": "bool", "string": "str", "Float64": "float", "Float32": "float"}
 
 
 def _items(value: Items, convert: Callable[[Value], Code]) -> Code:
@@ -29,6 +31,32 @@ def _items(value: Items, convert: Callable[[Value], Code]) -> Code:
     if value.brackets == "()" and len(value.items) == 1:
         inner += ","
     return Code(f"{value.brackets[0]}{inner}{value.brackets[1]}")
+
+
+# a column's values given to Python code (a loop over it) as pandas gives them, pandas imported
+# only where a value is missing
+VALUES_FUNCTION = "pandas_values"
+VALUES_DEFINITION = '''\
+def pandas_values(values):
+    """A column's values as pandas gives them to Python: pandas' own Series where one is
+    missing (nan for it, and floats for whole numbers), otherwise the Polars Series, whose
+    numbers, texts and True/False are the same Python values, so that pandas is not imported
+    for them."""
+    return values.to_pandas() if values.null_count() else values
+'''
+
+
+def python_values(column: Column) -> Code:
+    """The values of a column a loop reads, as pandas gives them (nan, not None, for a missing
+    one): through `pandas_values` for numbers and text without a row label or a pandas dtype
+    of their own, whose values are the same Python objects in both libraries where none is
+    missing; through pandas otherwise (dates are Timestamps there)."""
+    # (True/False with a missing value is pandas' object column, nan for it: to_pandas)
+    if (column.dtype in ("int", "float", "str") or column.dtype == "bool" and column.null_is_false) \
+            and not column.frame.index and not column.nullable_int \
+            and getattr(column, "pandas", None) is None:
+        return emit.call(VALUES_FUNCTION, series_frame(column).method("collect").method("to_series"))
+    return to_pandas(column)
 
 
 def series_frame(column: Column) -> Code:
@@ -114,12 +142,15 @@ def to_pandas(value: Value) -> Code:
         if categories:
             code = code.method("astype", {c: "category" for c in categories})
         nullable = {c: kind for c, kind in value.nullable_ints or ()
-                    if value.columns is not None and c in value.columns and value.dtype(c) == "int"}
+                    if value.columns is not None and c in value.columns
+                    and value.dtype(c) == _NULLABLE_KINDS.get(kind, "int")}
         if nullable:
             # pandas' nullable integers (astype("Int64"), isocalendar()): Polars hands an int
-            # column holding a missing value over as float64
+            # column holding a missing value over as float64; and its other nullable types (a
+            # parquet file pandas wrote): <NA>, not None or NaN
             code = code.method("astype", nullable)
-        code = _as_pandas_made_them(code, value.dtypes, value.columns)
+        code = _as_pandas_made_them(code, tuple((c, t) for c, t in value.dtypes
+                                                if c not in nullable), value.columns)
         if value.index:
             code = _labels(code, value)
             if value.index_unnamed and len(value.index) == 1:
@@ -455,3 +486,16 @@ def makes_periods(text: str, period_names: set[str] | frozenset[str] = frozenset
     except SyntaxError:
         return True
     return any(isinstance(n, ast.Name) and n.id in period_names for n in ast.walk(tree))
+
+
+# Python code whose whole numbers can pass Int64 (9.2e18): a power other than 0, 1 or 2 or a
+# fraction, a shift, factorial / comb / perm / prod / pow. pandas keeps such numbers exactly in
+# an object column, which no Polars type holds: pl.Series and pl.from_pandas refuse them
+PYTHON_INT_MAKERS = re.compile(
+    r"\*\*\s*(?!\(?\s*(?:[012](?![\d.eE])|\d*\.\d))|<<|\b(?:factorial|comb|perm|prod|pow)\s*\(")
+
+
+def makes_python_ints(text: str) -> bool:
+    """Whether pandas code may compute whole numbers past Int64 (`10 ** g`, `math.factorial`,
+    a dict of `2**70`): the frame that gets them stays pandas."""
+    return bool(PYTHON_INT_MAKERS.search(text))
