@@ -70,6 +70,10 @@ class FileSchema(dict[str, str]):
     # pandas' (\n, \r\n or a bare \r): "cr" when every line ends in a bare \r (read with
     # eol_char="\r"), "mixed" when bare \r and \n both end lines (no reader option does that)
     line_ends: str | None = None
+    # parquet: the columns pandas wrote with one of its nullable dtypes (Int64, boolean,
+    # string, Float64), from the pandas metadata of the file, which pandas' read_parquet
+    # restores; {} for a file without any, None when not looked at
+    pandas_nullable: dict[str, str] | None = None
 
 
 def polars_code(dtype: pl.DataType) -> str | None:
@@ -89,7 +93,8 @@ def merged(schemas: list[FileSchema]) -> FileSchema | None:
     every column's type with `partial` set."""
     first = schemas[0]
     if all(list(s.items()) == list(first.items()) and s.polars == first.polars
-           and s.padded == first.padded and s.line_ends == first.line_ends for s in schemas):
+           and s.padded == first.padded and s.line_ends == first.line_ends
+           and s.pandas_nullable == first.pandas_nullable for s in schemas):
         return first
     if any(s.padded for s in schemas):
         return None  # which file's numbers need their spaces stripped is not known
@@ -194,7 +199,29 @@ class SchemaReader:
             found.line_ends = "cr" if options.get("lineterminator") == "\r" else None
             if found.no_rows:
                 found.polars = None
+        if reader == "parquet":
+            found.pandas_nullable = _pandas_nullable(file)
         return found
+
+
+# pandas' nullable dtypes as its parquet metadata names them ("numpy_type")
+_NULLABLE_DTYPES = {"Int8", "Int16", "Int32", "Int64", "UInt8", "UInt16", "UInt32", "UInt64",
+                    "boolean", "string", "Float32", "Float64"}
+
+
+def _pandas_nullable(file: Path) -> dict[str, str] | None:
+    """The columns of a parquet file pandas wrote that its read_parquet gives one of pandas'
+    nullable dtypes, read from the file's pandas metadata (no data is loaded); {} for a file
+    without that metadata (written by Arrow or Polars: pandas reads numpy's types)."""
+    import json
+    try:
+        stored = pl.read_parquet_metadata(file).get("pandas")
+        columns = json.loads(stored)["columns"] if stored else []
+    except (pl.exceptions.PolarsError, OSError, ValueError, KeyError, TypeError):
+        return None
+    return {c["field_name"]: c["numpy_type"] for c in columns
+            if isinstance(c, dict) and c.get("numpy_type") in _NULLABLE_DTYPES
+            and isinstance(c.get("field_name"), str)}
 
 
 def _first_rows(file: Path, head: Path, options: dict[str, Any]) -> bool:

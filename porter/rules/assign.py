@@ -26,7 +26,8 @@ from porter.translate.context import (
     mark_float_ints, nullable_mark, set_nullable_ints, with_column_updates,
 )
 from porter.rules.strings import LIST_STR, expanded_columns, list_repr
-from porter.translate.handover import makes_periods, orders_categories, pandas_text, text_categories
+from porter.translate.handover import (makes_periods, makes_python_ints, orders_categories,
+                                       pandas_text, text_categories)
 from porter.translate.values import (
     MISSING, NOT_NULLABLE, Column, Frame, Opaque, PandasValue, Parts, Scalar, Value, fresh_token,
 )
@@ -154,7 +155,8 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
             # pandas' Interval values have no Polars type (from_pandas keeps an extension
             # column no writer takes): the statement and the frame stay pandas
             raise Unsupported("pandas' interval labels have no Polars type: the frame stays pandas")
-        if any(PYTHON_ONLY_NUMBERS in site.message for site in value.sites):
+        if any(PYTHON_ONLY_NUMBERS in site.message for site in value.sites) \
+                or makes_python_ints(value.code.text) or makes_python_ints(_function_text(value, ctx)):
             # Python's integers past Int64 or complex numbers (x ** 20, x ** 0.5 in a lambda):
             # pl.Series refuses them where they occur
             raise Unsupported(f"pandas' column may hold {PYTHON_ONLY_NUMBERS}: "
@@ -240,6 +242,22 @@ def _check_polars_type(kinds: frozenset[str] | None) -> None:
         raise Unsupported(f"the function returns {_FAMILIES.get(nested[0], 'lists')} (other than "
                           "lists of text), which porter does not carry in a Polars column: "
                           + FRAME_STAYS_PANDAS)
+
+
+def _function_text(value: PandasValue, ctx: RuleContext) -> str:
+    """The source of the script's own function a handed-over `s.map(f)` / `s.apply(f)` is
+    given by name ("" for anything else)."""
+    try:
+        node = ast.parse(value.code.text.strip(), mode="eval").body
+    except SyntaxError:
+        return ""
+    if not (isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute)
+            and node.func.attr in ("map", "apply") and ctx.function_def is not None):
+        return ""
+    given = node.args[0] if node.args else next(
+        (k.value for k in node.keywords if k.arg in ("arg", "func")), None)
+    found = ctx.function_def(given.id) if isinstance(given, ast.Name) else None
+    return cst.Module([]).code_for_node(found) if isinstance(found, cst.FunctionDef) else ""
 
 
 def returned_kinds(value: PandasValue, frame: Frame, ctx: RuleContext) -> frozenset[str] | None:

@@ -69,10 +69,16 @@ def series_values(call: PandasCall, ctx: RuleContext) -> Value:
         return Scalar(code.method(call.name), pytype="list" if call.name in ("tolist", "to_list")
                       else "array")
     if column.dtype == "str":
-        ctx.handover = True  # pandas' own values: nan for a missing text, as the script reads it
-        code = _series(column).method("to_pandas")
+        ctx.handover = True
+        if call.name == "values":
+            # pandas 3's text values are its own ArrowStringArray (printed and compared as
+            # such), not a numpy array
+            return Scalar(_series(column).method("to_pandas").attr("values"), pytype="array")
+        # pandas' own values where a text is missing (nan for it, as the script reads it);
+        # otherwise Polars' texts, the same str objects in a list or an object array
+        code = emit.call(handover.VALUES_FUNCTION, _series(column))
         if call.name in ("tolist", "to_list"):
-            return Scalar(code.method("tolist"), pytype="list")
+            return Scalar(code.method("to_list"), pytype="list")
         return Scalar(code.method("to_numpy"), pytype="array")
     if column.dtype in ("category", "enum") and not column.element:
         # pandas' Categorical: tolist() and to_numpy() give the labels and nan for a missing
@@ -221,8 +227,8 @@ def series_position(call: PandasCall, ctx: RuleContext) -> Value:
         # which a file name or a printed line shows; only the one value crosses to pandas.
         # Inside Polars expressions it is a missing text again (context.expr_in: "text")
         ctx.handover = True
-        one = column.frame.code.method("select", expr).method("collect").method("to_series") \
-            .method("to_pandas").attr("iloc").index(0)
+        one = emit.call(handover.VALUES_FUNCTION, column.frame.code.method("select", expr)
+                        .method("collect").method("to_series")).index(0)
         return replace(scalar_of(column, expr, None), code=one, pytype="text")
     if column.dtype == "bool" and not column.null_is_false:
         # True/False with a missing value is an object column in pandas: a Python bool, or nan

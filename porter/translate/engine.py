@@ -455,7 +455,7 @@ class _Walker:
                     "frame.columns", PandasCall(iter_value, "columns", node=stmt.iter), stmt.iter)
             if isinstance(iter_value, Column):
                 # a loop over a Series reads its values as pandas gives them (NaN, not None)
-                iter_value = replace(iter_value, code=handover.to_pandas(iter_value))
+                iter_value = replace(iter_value, code=handover.python_values(iter_value))
             changes["iter"] = self.header(stmt.iter, env, stmt, iter_value)
             loop_env = dict(env)
             pytype = "str" if _iterates_names(iter_value) else None
@@ -2242,6 +2242,8 @@ def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
     if statement is not None and handover.makes_periods(
             cst.Module([]).code_for_node(statement), period_names or set()):
         return None
+    if statement is not None and handover.makes_python_ints(cst.Module([]).code_for_node(statement)):
+        return None  # whole numbers past Int64: an object column no Polars type holds
     columns: tuple[str, ...] | None = None
     dtypes: tuple[tuple[str, str], ...] = ()
     if what in ("insert", "at", "iat", "attrs", "flags") or what.startswith(("attrs.", "flags.")):

@@ -7,6 +7,7 @@ import libcst as cst
 from porter.analysis.imports import ImportFacts
 from porter.rules.datetimes import GUESS_DEFINITION, GUESS_FUNCTION
 from porter.rules.handover import TEXT_DEFINITION, TEXT_FUNCTION
+from porter.translate.handover import VALUES_DEFINITION, VALUES_FUNCTION
 from porter.rules.strings import TITLE_DEFINITION, TITLE_FUNCTION, UPPER_DEFINITION, UPPER_FUNCTION
 from porter.rules.selection import DTYPE_PROBE_CONSTANT, DTYPE_PROBE_DEFINITION
 from porter.rules.groupby import (
@@ -122,7 +123,8 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (GROUP_SUMS_FUNCTION, GROUP_SUMS_DEFINITION),
                                  (GROUP_MEAN_FUNCTION, GROUP_MEAN_DEFINITION),
                                  (MEAN_FUNCTION, MEAN_DEFINITION),
-                                 (TEXT_VALUES_FUNCTION, TEXT_VALUES_DEFINITION)):
+                                 (TEXT_VALUES_FUNCTION, TEXT_VALUES_DEFINITION),
+                                 (VALUES_FUNCTION, VALUES_DEFINITION)):
         if function not in used or _defines(module, function):
             continue
         body = _insert_after_imports(body, _function(definition))

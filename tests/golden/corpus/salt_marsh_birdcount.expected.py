@@ -18,6 +18,14 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_values(values):
+    """A column's values as pandas gives them to Python: pandas' own Series where one is
+    missing (nan for it, and floats for whole numbers), otherwise the Polars Series, whose
+    numbers, texts and True/False are the same Python values, so that pandas is not imported
+    for them."""
+    return values.to_pandas() if values.null_count() else values
+
+
 def pandas_upper(text):
     """text.str.to_uppercase() as pandas' str.upper() writes it (pyarrow's kernel, one letter
     at a time): "ß" is "ẞ" (Polars: "SS"), and a letter Polars writes as two or three ("ﬁ" as
@@ -120,7 +128,10 @@ checklist = (
     .collect()
     .lazy()
 )
-SPECIES = checklist.select(pl.col("species")).collect().to_series().to_pandas().tolist()
+SPECIES = (
+    pandas_values(checklist.select(pl.col("species")).collect().to_series())
+    .to_list()
+)
 print(f"checklist: {len(SPECIES)} species")
 
 

@@ -15,6 +15,14 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_values(values):
+    """A column's values as pandas gives them to Python: pandas' own Series where one is
+    missing (nan for it, and floats for whole numbers), otherwise the Polars Series, whose
+    numbers, texts and True/False are the same Python values, so that pandas is not imported
+    for them."""
+    return values.to_pandas() if values.null_count() else values
+
+
 def pandas_sort_values(frame, by, descending=False, nulls_last=True):
     """The frame sorted by one column (a name or an expression) in the order pandas'
     sort_values gives: pandas sorts numbers, True/False and dates with numpy's quicksort, which
@@ -315,12 +323,13 @@ per_tool = (
 )
 print(
     "tools not in the stock list:",
-    per_tool.filter(pl.col("copies").is_null())
-    .select(pl.col("tool"))
-    .collect()
-    .to_series()
-    .to_pandas()
-    .tolist(),
+    pandas_values(
+        per_tool.filter(pl.col("copies").is_null())
+        .select(pl.col("tool"))
+        .collect()
+        .to_series(),
+    )
+    .to_list(),
 )
 
 # --- members with a tool out too long (or lost)
