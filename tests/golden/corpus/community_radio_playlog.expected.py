@@ -88,7 +88,8 @@ def seconds(t):
 
 
 plays["secs"] = plays["length"].map(seconds)
-# TODO(porter): pd.to_timedelta: `arg` is computed at run time; porter needs it written out
+# TODO(porter): pd.to_timedelta: only a column of a frame porter ports, or a number or text written
+#   out, is ported
 plays["dur"] = pd.to_timedelta(plays["secs"], unit="s")
 plays["ends"] = plays["aired"] + plays["dur"]
 plays["overrun"] = plays["secs"] > 600
@@ -145,17 +146,16 @@ people = people.with_columns(
     .then(pl.lit("="))
     .str.to_datetime("%Y-%m-%d", time_unit="us"),
 )
-people = people.collect().to_pandas()
-# TODO(porter): frame.getitem.column: kept on pandas with the statement it is in
-# TODO(porter): pd.DateOffset: porter has no rule for this API yet
-# TODO(porter): series.arith: a value computed by pandas is mixed into a Polars expression
-# TODO(porter): frame.setitem: a Series computed by pandas whose rows porter cannot match to the
-#   frame's (pandas aligns it on the index): the statement stays pandas
-people["renew"] = people["joined"] + pd.DateOffset(months=12)
+people = people.with_columns(renew=pl.col("joined").dt.offset_by("12mo"))
 rota = plays.groupby("presenter", dropna=False).agg(plays=("play_id", "count"), last_on=("aired", "max")).reset_index()
 # TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
 #   pandas with .collect().to_pandas(); port that code to take a Polars frame
-rota = rota.merge(people, left_on="presenter", right_on="initials", how="left")
+rota = rota.merge(
+    people.collect().to_pandas(),
+    left_on="presenter",
+    right_on="initials",
+    how="left",
+)
 rota["late"] = rota["last_on"] > rota["renew"]
 rota["label"] = rota.apply(lambda r: f"{r['name']} ({r['plays']})" if isinstance(r["name"], str) else "?", axis=1)
 rota = rota.drop(columns=["initials"])

@@ -136,7 +136,8 @@ tix["month"] = tix["sold_at"].dt.to_period("M")
 tix["hour"] = tix["sold_at"].dt.hour
 tix["slot"] = tix["hour"].map(lambda h: "morning" if h < 12 else ("lunch" if h < 14 else "afternoon"))
 tix["month_end"] = tix["sold_at"].dt.is_month_end
-# TODO(porter): pd.to_timedelta: `arg` is computed at run time; porter needs it written out
+# TODO(porter): pd.to_timedelta: only a column of a frame porter ports, or a number or text written
+#   out, is ported
 tix["leaves_at"] = tix["sold_at"] + pd.to_timedelta(tix["visit_min"], unit="m")
 tix["after_close"] = tix["leaves_at"] > tix["day"] + pl.select(pl.duration(hours=18)).item()
 tix["tour_count"] = tix["tours"].str.count(";") + 1
@@ -178,7 +179,11 @@ shows = shows.with_columns(
     days_open=(pl.col("closes") - pl.col("opens")).dt.total_microseconds() // 86_400_000_000 + 1,
 )
 shows = shows.with_columns(
-    short=pandas_upper(pl.col("title").str.head(10).str.strip_chars()),
+    short=pandas_upper(
+        pl.col("title")
+        .str.head(10)
+        .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
+    ),
 )
 print(shows.collect())
 

@@ -51,8 +51,7 @@ print(log.shape, inc.shape)
 log = log.drop_duplicates(subset=["msg_id"])
 log = tidy(log)
 
-# TODO(porter): pd.to_datetime: unit= of something other than a column of whole numbers (pandas
-#   reads fractions too)
+# TODO(porter): pd.to_datetime: unit= of something other than a column of numbers
 log["at"] = pd.to_datetime(log["logged"], unit="s")
 log["at"] = log["at"].dt.tz_localize("UTC").dt.tz_convert("Europe/Vienna")
 log["local_day"] = log["at"].dt.strftime("%Y-%m-%d")
