@@ -176,3 +176,19 @@ def test_date_offset_that_sets_a_part_stays_on_pandas() -> None:
                    'df["m"] = df["d"] + pd.DateOffset(month=3)\nresult = df\n')
     result = differential(text)
     assert "TODO(porter): pd.DateOffset" in result.converted_text
+
+
+def test_date_offset_held_in_a_name_stays_on_pandas() -> None:
+    # a name holds pandas' DateOffset (no Polars value): the addition had raised inside porter
+    # ("could not read this call"); it is a TODO that runs, as pandas computes it
+    result = differential(HEAD + '''
+df = pd.DataFrame({"s": ["2024-01-31", None, "2023-03-31"]})
+df["d"] = pd.to_datetime(df["s"], format="%Y-%m-%d")
+off = pd.DateOffset(months=1)
+df["r"] = df["d"] + off
+t = pd.Timestamp("2024-01-31") + pd.DateOffset(months=1)
+df["late"] = df["d"] < t
+result = df
+''')
+    assert "a DateOffset held in a name" in result.converted_text
+    assert "internal error" not in result.converted_text

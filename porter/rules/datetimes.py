@@ -1122,7 +1122,9 @@ def _offset_arithmetic(call: PandasCall, ctx: RuleContext, column: Column) -> Co
     """datetime column + / - pd.DateOffset(...) -> dt.offset_by(...)."""
     left, right = call.receiver, call.args[0]
     offset = right if is_timedelta(right) else left
-    assert isinstance(offset, Scalar) and offset.expr is not None
+    assert isinstance(offset, Scalar)
+    if offset.expr is None:  # a name holding it: pandas' DateOffset, no Polars value
+        raise ctx.todo("a DateOffset held in a name: write pd.DateOffset(...) where it is added")
     if call.name not in ("+", "-") or column.dtype not in (None, "datetime") \
             or (call.name == "-" and offset is left) or is_timedelta(left) == is_timedelta(right):
         raise ctx.todo("a DateOffset is ported added to or subtracted from a datetime column")
