@@ -10,12 +10,6 @@ PRIORITY = {"mayday": 1, "cas": 2, "pos": 3}
 TEAMS = {"team 1": "T1", "team1": "T1", "team 2": "T2", "heli": "H", "héli-2": "H", "base": "B"}
 
 
-def load():
-    log = pd.read_csv("data/radio_log.csv", na_values=["n/a", "?"], dtype={"channel": str})
-    inc = pd.read_csv("data/incidents.csv", na_values=["n/a"])
-    return log, inc
-
-
 def tidy(log):
     log["call"] = log["call"].str.strip().str.lower()
     log["unit"] = log["call"].map(TEAMS)
@@ -28,7 +22,8 @@ def tidy(log):
     return log
 
 
-log, inc = load()
+log = pd.read_csv("data/radio_log.csv", na_values=["n/a", "?"], dtype={"channel": str})
+inc = pd.read_csv("data/incidents.csv", na_values=["n/a"])
 print(log.shape, inc.shape)
 log = log.drop_duplicates(subset=["msg_id"])
 log = tidy(log)
