@@ -136,6 +136,64 @@ def normalize(call: PandasCall, ctx: RuleContext) -> Value:
     return _result(column, _dt(column).method("truncate", "1d"), "datetime")
 
 
+def _zone(call: PandasCall, ctx: RuleContext) -> str | None:
+    zone = call.const("tz", 0, kinds=(str, type(None)))
+    if zone is not None and not re.fullmatch(r"UTC|[A-Za-z]+(?:[/_+-][A-Za-z0-9_+-]+)+", zone):
+        raise ctx.todo(f"the time zone {zone!r}: porter ports UTC and named zones "
+                       "('Europe/Paris'), which both libraries read from the same database")
+    return zone
+
+
+def _zone_set_here(column: Column) -> bool:
+    """The column's expression gives it a time zone (tz_localize / tz_convert ported in it)."""
+    return any(f".dt.{m}(" in column.code.text
+               for m in ("replace_time_zone", "convert_time_zone"))
+
+
+@rule("series.dt.tz_localize")
+def tz_localize(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.dt.tz_localize(tz) -> dt.replace_time_zone(tz); tz_localize(None) ->
+    dt.replace_time_zone(None).
+
+    Handles: the wall-clock time kept, the zone set; a time that does not exist (spring
+    forward) or is ambiguous (fall back) is an error in both (pandas' and Polars' default
+    "raise"); None drops the zone and keeps the local time, as pandas does; NaT stays missing.
+    Caveats: ambiguous=, nonexistent= and a zone computed at run time are TODOs.
+    """
+    column = accessor_column(call)
+    ctx.reject_unknown(call, "tz", positional=1)
+    if column.dtype not in (None, "datetime"):
+        raise ctx.todo(f"a {column.dtype} column")
+    return _result(column, _dt(column).method("replace_time_zone", _zone(call, ctx)), "datetime")
+
+
+@rule("series.dt.tz_convert")
+def tz_convert(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.dt.tz_convert(tz) -> dt.convert_time_zone(tz); tz_convert(None) -> the UTC time
+    without a zone (dt.convert_time_zone("UTC").dt.replace_time_zone(None)).
+
+    Handles: the same instant in another zone's local time (hour, date, strftime then read
+    it, as in pandas); NaT stays missing.
+    Caveats: pandas refuses a column without a time zone (TypeError), Polars reads it as UTC:
+    only a column given its zone in the same expression (s.dt.tz_localize("UTC").dt.tz_convert
+    (tz)) is ported, any other is a TODO.
+    """
+    column = accessor_column(call)
+    ctx.reject_unknown(call, "tz", positional=1)
+    if column.dtype not in (None, "datetime"):
+        raise ctx.todo(f"a {column.dtype} column")
+    zone = _zone(call, ctx)
+    if not _zone_set_here(column):
+        # porter does not follow a column's zone from statement to statement
+        raise ctx.todo("a column porter does not know to have a time zone (pandas refuses "
+                       "one without, Polars would read it as UTC): tz_localize it in the same "
+                       "expression")
+    code = _dt(column).method("convert_time_zone", zone or "UTC")
+    if zone is None:  # pandas: the UTC wall-clock time, the zone dropped
+        code = code.attr("dt").method("replace_time_zone", None)
+    return _result(column, code, "datetime")
+
+
 _FIXED_FLOOR = re.compile(r"^([1-9][0-9]*)?(D|h|min|s|ms|us)$")
 _POLARS_UNIT = {"D": "d", "h": "h", "min": "m", "s": "s", "ms": "ms", "us": "us"}
 
@@ -660,6 +718,54 @@ GUESS_REASON = ("no format: pandas guesses one from the first value and reads ev
                 "sure")
 
 
+def _written_values(column: Column, ctx: RuleContext) -> list[list[object]]:
+    """The values of the column when they are written in the script: pd.Series([...]) or
+    pd.DataFrame({"c": [...]}) assigned to the name of its frame (each such assignment: a
+    false match only keeps a call on pandas), or pl.LazyFrame({...}) as the frame's code."""
+    import ast
+    if not column.code.text.startswith("pl.col("):
+        return []
+    try:
+        name = ast.literal_eval(column.code.text.removeprefix("pl.col(").removesuffix(")"))
+        frame = ast.parse(column.frame.code.text, mode="eval").body
+    except (SyntaxError, ValueError, TypeError, RecursionError):
+        return []
+    sources: list[ast.expr] = []
+    if isinstance(frame, ast.Call):
+        sources.append(frame)
+    elif isinstance(frame, ast.Name) and isinstance(ctx.python_module, ast.Module):
+        sources += [node.value for node in ast.walk(ctx.python_module)
+                    if isinstance(node, ast.Assign) and isinstance(node.value, ast.Call)
+                    and any(isinstance(t, ast.Name) and t.id == frame.id for t in node.targets)]
+    found = []
+    for call in sources:
+        if not (isinstance(call, ast.Call) and isinstance(call.func, ast.Attribute) and call.args):
+            continue
+        listed: ast.expr | None = call.args[0]
+        if isinstance(listed, ast.Dict):
+            listed = next((v for k, v in zip(listed.keys, listed.values)
+                           if isinstance(k, ast.Constant) and k.value == name), None)
+        elif call.func.attr != "Series":
+            continue
+        try:
+            values = ast.literal_eval(listed) if listed is not None else None
+        except (ValueError, TypeError, SyntaxError, RecursionError):
+            continue
+        if isinstance(values, (list, tuple)):
+            found.append(list(values))
+    return found
+
+
+def _first_written_values(column: Column, ctx: RuleContext) -> list[str]:
+    """The first value pandas guesses a format from, of each list of texts written in the
+    script the column may come from (_written_values)."""
+    firsts = []
+    for values in _written_values(column, ctx):
+        texts = [t.strip() for t in values if isinstance(t, str) and t.strip() not in _NOT_FIRST]
+        firsts += texts[:1]
+    return firsts
+
+
 def parse_format(fmt: str, ctx: RuleContext, *, years_fixed: bool = False) -> str:
     """A pandas (strptime) format as a Polars (chrono) format, or a TODO (`years_fixed`: the
     caller moves chrono's 2069 of %y to pandas' 1969)."""
@@ -688,10 +794,20 @@ def _from_epoch(call: PandasCall, column: Value, ctx: RuleContext) -> Value:
     if unit not in ("s", "ms", "us") or call.has("format") or call.has("errors"):
         raise ctx.todo(f"unit={unit!r} (porter reads whole seconds, milliseconds or "
                        "microseconds since 1970, without format= or errors=)")
-    if not isinstance(column, Column) or column.dtype != "int":
-        raise ctx.todo("unit= of something other than a column of whole numbers (pandas reads "
-                       "fractions too)")
-    code = emit.pl("from_epoch", column.code, time_unit=unit)
+    if not isinstance(column, Column) or column.dtype not in ("int", "float"):
+        raise ctx.todo("unit= of something other than a column of numbers")
+    numbers = column.code
+    if column.dtype == "float":
+        # a column of whole numbers with missing values (read from a file with blanks) is
+        # float64 in pandas: it reads them as it reads whole numbers (datetime64[us], NaN is
+        # NaT); a number with a fraction makes pandas keep nanoseconds, cut here to the unit
+        if any(isinstance(v, float) and v == v and not v.is_integer()
+               for values in _written_values(column, ctx) for v in values):
+            raise ctx.todo("a number with a fraction: pandas keeps nanoseconds (datetime64[ns])")
+        ctx.lower("a float column: a number with a fraction makes pandas keep nanoseconds "
+                  "(datetime64[ns]); here it is cut to the whole unit", 0.9)
+        numbers = numbers.method("fill_nan", None).method("cast", emit.atom("pl.Int64"))
+    code = emit.pl("from_epoch", numbers, time_unit=unit)
     if unit != "us":
         code = code.method("cast", emit.atom('pl.Datetime("us")'))
     return derived_column(column, code, dtype="datetime")
@@ -724,7 +840,8 @@ def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
     in pandas even with errors="coerce") are missing here; a list or a frame stays on
     pandas. A date written in the script (pd.to_datetime("2024-03-01"), format= allowed) is
     the Timestamp pandas reads from it at convert time, as pd.Timestamp. unit="s" / "ms" /
-    "us" of whole numbers is pl.from_epoch; fractions and other units are TODOs.
+    "us" of a column of numbers is pl.from_epoch; a float column's fractions (nanoseconds in
+    pandas) are cut to the unit (0.9); other units are TODOs.
     """
     ctx.reject_unknown(call, "arg", "errors", "format", "unit", positional=1)
     column = call.arg("arg", 0)
@@ -755,6 +872,14 @@ def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
     text = column.code.attr("str")
     nat_texts = '"" and "NaT" are missing in pandas and an error in Polars (strict)'
     if fmt is None:
+        for first in _first_written_values(column, ctx):
+            if any(re.fullmatch(guess_selection(f), first) for f in GUESSED_FORMATS):
+                continue
+            # the values are written in the script: pandas reads a first value in another
+            # layout ("1/1/2020 10:00:00+00:00": a time zone) value by value, the converted
+            # pandas_to_datetime would find no format and fail
+            raise ctx.todo(f"the first date {first!r} is in a layout pandas reads value by "
+                           "value (dateutil); write format= to port it")
         ctx.lower(GUESS_REASON, 0.8)
         code = guessed_parse(column.code, coerce=errors == "coerce")
     else:
@@ -933,6 +1058,10 @@ def to_timedelta(call: PandasCall, ctx: RuleContext) -> Value:
     column = call.arg("arg", 0)
     if isinstance(column, Column):
         return _column_timedelta(call, column, ctx)
+    if not (isinstance(column, Opaque) and column.is_const):
+        # a pandas Series porter left on pandas (its frame was handed over), a list, a name
+        raise ctx.todo("only a column of a frame porter ports, or a number or text written "
+                       "out, is ported")
     return timedelta_scalar(_value_us(call, ctx), ctx)
 
 
@@ -957,8 +1086,55 @@ def _column_timedelta(call: PandasCall, column: Column, ctx: RuleContext) -> Col
 
 
 def is_timedelta(value: Value) -> bool:
-    """A duration written out in the script (pd.Timedelta …), or a name holding one."""
-    return isinstance(value, Scalar) and value.pytype == "timedelta"
+    """A duration written out in the script (pd.Timedelta …, pd.DateOffset(months=…)), or a
+    name holding one."""
+    return isinstance(value, Scalar) and value.pytype in ("timedelta", "dateoffset")
+
+
+# pd.DateOffset's plural keywords (added to the date; the singular ones replace a part) as
+# Polars' offset_by units: both move by calendar units, a day past the month's end is the
+# month's last day (2024-01-31 + 1 month is 2024-02-29)
+_OFFSET_UNITS = {"years": "y", "months": "mo", "weeks": "w", "days": "d"}
+
+
+@rule("pd.DateOffset")
+def date_offset(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.DateOffset(months=12) -> dt.offset_by("12mo") where it is added to (or subtracted
+    from) a datetime column.
+
+    Handles: one of years=, months=, weeks=, days= as a whole number written out; the day
+    clipped to the end of a shorter month in both; NaT stays missing.
+    Caveats: several keywords, the singular ones (month=3 sets the month), hours and below,
+    n= and a value computed at run time are TODOs; any use other than + and - with a datetime
+    column stays pandas.
+    """
+    ctx.reject_unknown(call, *_OFFSET_UNITS)
+    parts = {k: call.const(k, None, kinds=(int,)) for k in _OFFSET_UNITS if k in call.kwargs}
+    if len(parts) != 1 or any(isinstance(n, bool) for n in parts.values()):
+        raise ctx.todo("porter ports one of years=, months=, weeks=, days= as a whole number")
+    (unit, count), = parts.items()
+    every = f"{count}{_OFFSET_UNITS[unit]}"
+    return Scalar(emit.call("pd.DateOffset", **parts), pytype="dateoffset",
+                  expr=emit.atom(repr(every)))
+
+
+def _offset_arithmetic(call: PandasCall, ctx: RuleContext, column: Column) -> Column:
+    """datetime column + / - pd.DateOffset(...) -> dt.offset_by(...)."""
+    left, right = call.receiver, call.args[0]
+    offset = right if is_timedelta(right) else left
+    assert isinstance(offset, Scalar)
+    if offset.expr is None:  # a name holding it: pandas' DateOffset, no Polars value
+        raise ctx.todo("a DateOffset held in a name: write pd.DateOffset(...) where it is added")
+    if call.name not in ("+", "-") or column.dtype not in (None, "datetime") \
+            or (call.name == "-" and offset is left) or is_timedelta(left) == is_timedelta(right):
+        raise ctx.todo("a DateOffset is ported added to or subtracted from a datetime column")
+    if _zone_set_here(column):
+        raise ctx.todo("a column with a time zone")
+    every = offset.expr.text.strip("'\"")
+    if call.name == "-":
+        every = every[1:] if every.startswith("-") else "-" + every
+    code = ctx.expr(column, column.frame).attr("dt").method("offset_by", every)
+    return derived_column(column, code, dtype="datetime", others=[left, right])
 
 
 def _true_divide(numerator: Code, divisor: Code | int) -> Code:
@@ -978,6 +1154,8 @@ def timedelta_arithmetic(call: PandasCall, ctx: RuleContext, column: Column) -> 
     """series.arith where one operand is a Timedelta (see is_timedelta)."""
     left, right = call.receiver, call.args[0]
     assert left is not None
+    if any(isinstance(v, Scalar) and v.pytype == "dateoffset" for v in (left, right)):
+        return _offset_arithmetic(call, ctx, column)
     op = call.name
     if column.dtype not in (None, "datetime", "duration"):
         raise ctx.todo(f"a Timedelta with a {column.dtype} column")

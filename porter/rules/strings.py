@@ -266,6 +266,15 @@ def _only_final_dollar(pattern: str, flags: int) -> bool:
     return len(dollars) == 1 and pattern.endswith("$") and tuple(tree[-1]) == (_C.AT, _C.AT_END)
 
 
+def _anchored_at_both_ends(pattern: str, flags: int) -> bool:
+    """^...$ without re.M, its only $ the final one (outside any alternation)."""
+    if flags & re.M or not _only_final_dollar(pattern, flags):
+        return False
+    tree = _P.parse(pattern, flags)
+    return tuple(tree[0]) == (_C.AT, _C.AT_BEGINNING) \
+        and not _rejected(pattern[:-1] + r"(\n?)$", flags)
+
+
 def polars_template(repl: str, groups: int, ctx: RuleContext) -> str:
     r"""A Python replacement template (\1, \g<name>) in Polars' syntax (${1}, $$) (T03)."""
     escapes = {"n": "\n", "t": "\t", "r": "\r", "f": "\f", "v": "\v", "a": "\a", "b": "\b",
@@ -366,10 +375,10 @@ def case(call: PandasCall, ctx: RuleContext) -> Value:
     letters Polars writes as two or three (ligatures "ﬁ", "ﬂ", "ŉ", Greek letters with accents
     or an iota) are kept or made their one capital, as pandas' kernel does. title()
     (TITLE_DEFINITION): "ß" and a digraph first in a word, "İ" inside one, and the ligatures
-    kept first in a word, as pandas writes them.
-    Caveats: title() starts a word after a letter without case (CJK, Hebrew, Arabic, a
-    combining mark) in pandas only, and Georgian letters first in a word are capitals in pandas
-    only; it writes an "i" with a combining dot (i + U+0307) already in the text as "i";
+    kept first in a word, as pandas writes them; a word starts after a letter without case
+    (CJK, Hebrew, Arabic, a modifier letter), as in pandas.
+    Caveats: title(): Georgian letters first in a word are capitals in pandas only; it writes
+    an "i" with a combining dot (i + U+0307) already in the text as "i";
     letters added in Unicode 16 change case in pandas only (confidence below 1 in the table).
     """
     column = text_column(call, ctx)
@@ -385,6 +394,11 @@ def case(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 TITLE_FUNCTION = "pandas_title"
+# the letters pandas' title() (pyarrow's kernel) reads as without case, so that the next letter
+# starts a word, where Polars reads any alphabetic character as inside a word: alphabetic but
+# neither an upper, lower nor title case letter; letter numbers and circled letters (Ⅰ, Ⓐ),
+# which have a case, left out
+TITLE_UNCASED = r"[\p{Alphabetic}&&[^\p{Lu}\p{Ll}\p{Lt}]&&[^\p{Cased}&&[\p{Nl}\x{24b6}-\x{24e9}]]]"
 # pandas' title() upper-cases the first letter of a word, Polars' writes its title case: the
 # four letters whose title case is not their upper case (the digraphs "ǅ", "ǈ", "ǋ", "ǲ") are
 # made their upper case after it
@@ -395,12 +409,16 @@ def pandas_title(text):
     a digraph first in a word is its upper case ("ǆemal" -> "Ǆemal", Polars: "ǅemal"), "İ"
     inside a word is "i" (Polars: i and a combining dot), and a letter Polars writes as two or
     three first in a word ("ﬁ" as "Fi") is kept: a letter without case set before it makes
-    Polars read it as inside a word, and is taken out after."""
+    Polars read it as inside a word, and is taken out after. A letter without case (CJK,
+    Hebrew, a modifier letter) ends a word for pandas, not for Polars: a mark that is no
+    letter (U+FFFF) is set after each, and taken out after."""
     kept, mark = "[{_escaped(TITLE_KEPT)}]", "{TITLE_MARK}"
     return (
         text.str.replace_many({{"Σ": "σ", "ß": "ẞ"}})
+        .str.replace_all(r"{TITLE_UNCASED}", "$0\\uffff")
         .str.replace_all(kept, mark + "$0")
         .str.to_titlecase()
+        .str.replace_all("\\uffff", "", literal=True)
         .str.replace_many({{"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\\u0307": "i"}})
         .str.replace_all(mark + f"({{kept}})", "$1")
     )
@@ -425,21 +443,31 @@ def _simple_lower_case(text: Code) -> Code:
 
 
 _STRIP = {"strip": "strip_chars", "lstrip": "strip_chars_start", "rstrip": "strip_chars_end"}
+# a run of the characters Python's str.isspace() is true for (pandas' str.strip() without
+# chars strips them): Unicode's White_Space (the regex \s, what Polars' strip_chars() strips)
+# and the separators \x1c-\x1f
+_PYTHON_WHITESPACE_RUN = {"strip": r"^[\s\x1c-\x1f]+|[\s\x1c-\x1f]+$",
+                          "lstrip": r"^[\s\x1c-\x1f]+", "rstrip": r"[\s\x1c-\x1f]+$"}
 
 
 @rule("series.str.strip", "series.str.lstrip", "series.str.rstrip")
 def strip(call: PandasCall, ctx: RuleContext) -> Value:
     """s.str.strip(chars) / lstrip / rstrip -> str.strip_chars(chars) / _start / _end.
 
-    Handles: a set of characters to strip (both read it as a set, not a prefix).
-    Caveats: without chars, Python also strips \\x1c-\\x1f (0.99).
+    Handles: a set of characters to strip (both read it as a set, not a prefix); without
+    chars, a run of Python's whitespace at the ends (\\x1c-\\x1f too, which Polars'
+    strip_chars() leaves): str.replace_all(r"^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "").
     """
     column = text_column(call, ctx)
     ctx.reject_unknown(call, "to_strip", positional=1)
     chars = call.const("to_strip", 0, None)
     if chars is None:
-        ctx.lower("whitespace: Python also strips \\x1c-\\x1f, Polars does not", 0.99)
-        return _string(column, _text(column).method(_STRIP[call.name]))
+        # pandas strips what Python's str.isspace() calls whitespace; Polars' strip_chars()
+        # Unicode's White_Space (the regex \s), which lacks the separators \x1c-\x1f: a run
+        # of Python's whitespace at either end is taken out
+        pattern = _PYTHON_WHITESPACE_RUN[call.name]
+        method = "replace_all" if call.name == "strip" else "replace"
+        return _string(column, _text(column).method(method, pattern, ""))
     if not isinstance(chars, str):
         raise ctx.todo("characters to strip must be text")
     return _string(column, _text(column).method(_STRIP[call.name], chars))
@@ -736,9 +764,18 @@ def replace(call: PandasCall, ctx: RuleContext) -> Value:
     else:
         if n == 0 or n > 1:  # n=0 replaces nothing or everything, depending on pandas' path
             raise ctx.todo(f"a regex replacement with n={n}: Polars replaces the first or all")
-        source = polars_regex(pat if regex else re.escape(pat), flags, ctx, test=False)
-        groups = re.compile(pat if regex else re.escape(pat), flags).groups
-        args = (inline_flags(flags) + source, polars_template(repl, groups, ctx))
+        pattern = pat if regex else re.escape(pat)
+        groups = re.compile(pattern, flags).groups
+        if _anchored_at_both_ends(pattern, flags):
+            # ^...$: one match at most, and Python's $ also matches before a final newline:
+            # the newline is matched by a group of its own and written back after the
+            # replacement, so the text is the same as pandas'
+            source = polars_regex(pattern[:-1], flags, ctx, test=False) + r"(\n?)$"
+            template = polars_template(repl, groups, ctx) + f"${{{groups + 1}}}"
+        else:
+            source = polars_regex(pattern, flags, ctx, test=False)
+            template = polars_template(repl, groups, ctx)
+        args = (inline_flags(flags) + source, template)
         options = {}
     if n < 0:
         return _string(column, text.method("replace_all", *args, **options))

@@ -13,12 +13,16 @@ def pandas_title(text):
     a digraph first in a word is its upper case ("ǆemal" -> "Ǆemal", Polars: "ǅemal"), "İ"
     inside a word is "i" (Polars: i and a combining dot), and a letter Polars writes as two or
     three first in a word ("ﬁ" as "Fi") is kept: a letter without case set before it makes
-    Polars read it as inside a word, and is taken out after."""
+    Polars read it as inside a word, and is taken out after. A letter without case (CJK,
+    Hebrew, a modifier letter) ends a word for pandas, not for Polars: a mark that is no
+    letter (U+FFFF) is set after each, and taken out after."""
     kept, mark = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾲᾴᾶᾷῂῄῆῇῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷﬀ-ﬆﬓ-ﬗ]", "\ua66e"
     return (
         text.str.replace_many({"Σ": "σ", "ß": "ẞ"})
+        .str.replace_all(r"[\p{Alphabetic}&&[^\p{Lu}\p{Ll}\p{Lt}]&&[^\p{Cased}&&[\p{Nl}\x{24b6}-\x{24e9}]]]", "$0\uffff")
         .str.replace_all(kept, mark + "$0")
         .str.to_titlecase()
+        .str.replace_all("\uffff", "", literal=True)
         .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"})
         .str.replace_all(mark + f"({kept})", "$1")
     )
@@ -98,7 +102,11 @@ visits = pl.scan_csv(
     null_values=PANDAS_NA_VALUES,
     infer_schema_length=None,
 )
-visits = visits.with_columns(name=pandas_title(pl.col("name").str.strip_chars()))
+visits = visits.with_columns(
+    name=pandas_title(
+        pl.col("name").str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
+    ),
+)
 visits = visits.with_columns(
     day=pl.when(
         pl.col("day")

@@ -259,7 +259,9 @@ def load_plots(path):
     plots = pl.scan_csv(path, null_values=PANDAS_NA_VALUES, infer_schema_length=None)
     plots = plots.rename({"water_tap": "tap"}, strict=False)
     plots = plots.with_columns(
-        section=pandas_upper(pl.col("section").str.strip_chars()),
+        section=pandas_upper(
+            pl.col("section").str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
+        ),
     )
     plots = plots.with_columns(
         tap=pl.col("tap").replace({"yes": "Y", "no": "N"}).fill_null(pl.lit("N")),
@@ -285,7 +287,7 @@ def load_payments(path):
     )
     payments = payments.with_columns(
         method=pl.col("method")
-        .str.strip_chars()
+        .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
         .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase()
         .replace("chq", "cheque"),

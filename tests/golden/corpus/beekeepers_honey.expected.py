@@ -257,13 +257,13 @@ def main():
     )
     harvests = harvests.with_columns(
         keeper=pl.col("keeper")
-        .str.strip_chars()
+        .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
         .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase(),
     )
     harvests = harvests.with_columns(
         apiary=pl.col("apiary")
-        .str.strip_chars()
+        .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
         .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase(),
     )

@@ -289,11 +289,15 @@ def load_passages(path):
     )
     p = p.with_columns(
         vessel_class=pl.col("vessel_class")
-        .str.strip_chars()
+        .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
         .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase(),
     )
-    p = p.with_columns(lock_id=pandas_upper(pl.col("lock_id").str.strip_chars()))
+    p = p.with_columns(
+        lock_id=pandas_upper(
+            pl.col("lock_id").str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
+        ),
+    )
     p = p.unique("passage_id", keep="first", maintain_order=True)
     # one line has a month 13 -- can't price it without a date
     return p.drop_nulls("passed_at")

@@ -61,7 +61,9 @@ DYE_COSTS = pl.LazyFrame(
 
 def tidy_codes(batches):
     batches = batches.with_columns(
-        batch_code=pandas_upper(pl.col("batch_code").str.strip_chars()),
+        batch_code=pandas_upper(
+            pl.col("batch_code").str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
+        ),
     )
     batches = batches.with_columns(prefix=pl.col("batch_code").str.head(3))
     batches = batches.with_columns(
@@ -69,7 +71,7 @@ def tidy_codes(batches):
     )
     batches = batches.with_columns(
         dye=pl.col("dye")
-        .str.strip_chars()
+        .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
         .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase()
         .str.replace_all(" hull", "", literal=True),

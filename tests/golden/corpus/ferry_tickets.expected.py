@@ -137,7 +137,9 @@ tickets = tickets.with_columns(
 )
 
 tickets = tickets.with_columns(
-    route_code=pandas_upper(pl.col("route_code").str.strip_chars()),
+    route_code=pandas_upper(
+        pl.col("route_code").str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
+    ),
 )
 tickets = tickets.with_columns(
     fare_class=pl.col("fare_class")
@@ -146,7 +148,7 @@ tickets = tickets.with_columns(
 )
 tickets = tickets.with_columns(
     vehicle=pl.col("vehicle")
-    .str.strip_chars()
+    .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
     .str.replace_many({"İ": "i", "Σ": "σ"})
     .str.to_lowercase(),
 )

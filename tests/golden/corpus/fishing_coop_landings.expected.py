@@ -35,7 +35,7 @@ SPELLINGS = {"anchovie": "anchovy", "sardines": "sardine"}
 def clean_landings(landings):
     landings = landings.with_columns(
         species=pl.col("species")
-        .str.strip_chars()
+        .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
         .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase(),
     )

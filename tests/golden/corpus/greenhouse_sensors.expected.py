@@ -120,7 +120,7 @@ print(log.select(pl.len()).collect().item())
 
 log = log.with_columns(
     house=pl.col("house")
-    .str.strip_chars()
+    .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
     .str.replace_many({"İ": "i", "Σ": "σ"})
     .str.to_lowercase(),
 )

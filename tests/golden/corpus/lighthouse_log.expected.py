@@ -20,12 +20,16 @@ def pandas_title(text):
     a digraph first in a word is its upper case ("ǆemal" -> "Ǆemal", Polars: "ǅemal"), "İ"
     inside a word is "i" (Polars: i and a combining dot), and a letter Polars writes as two or
     three first in a word ("ﬁ" as "Fi") is kept: a letter without case set before it makes
-    Polars read it as inside a word, and is taken out after."""
+    Polars read it as inside a word, and is taken out after. A letter without case (CJK,
+    Hebrew, a modifier letter) ends a word for pandas, not for Polars: a mark that is no
+    letter (U+FFFF) is set after each, and taken out after."""
     kept, mark = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾲᾴᾶᾷῂῄῆῇῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷﬀ-ﬆﬓ-ﬗ]", "\ua66e"
     return (
         text.str.replace_many({"Σ": "σ", "ß": "ẞ"})
+        .str.replace_all(r"[\p{Alphabetic}&&[^\p{Lu}\p{Ll}\p{Lt}]&&[^\p{Cased}&&[\p{Nl}\x{24b6}-\x{24e9}]]]", "$0\uffff")
         .str.replace_all(kept, mark + "$0")
         .str.to_titlecase()
+        .str.replace_all("\uffff", "", literal=True)
         .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"})
         .str.replace_all(mark + f"({kept})", "$1")
     )
@@ -122,7 +126,7 @@ FOG_NM = 2   # below two nautical miles the horn goes on
 
 def tidy_names(s):
     # keepers type their own names, in any case, sometimes with a leading space
-    return pandas_title(s.str.strip_chars())
+    return pandas_title(s.str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""))
 
 
 log = pl.scan_csv(
@@ -138,7 +142,11 @@ stations = pl.scan_csv(
 print("raw lines:", log.select(pl.len()).collect().item())
 
 log = log.unique(keep="first", maintain_order=True)
-log = log.with_columns(station=pandas_upper(pl.col("station").str.strip_chars()))
+log = log.with_columns(
+    station=pandas_upper(
+        pl.col("station").str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
+    ),
+)
 log = log.with_columns(keeper=tidy_names(pl.col('keeper')))
 log = log.with_columns(
     watch_no=pl.col("watch")

@@ -242,10 +242,12 @@ clean = (
     weighings
     .with_columns(
         variety=pl.col("variety")
-        .str.strip_chars()
+        .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
         .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase(),
-        grade=pandas_upper(pl.col("grade").str.strip_chars()),
+        grade=pandas_upper(
+            pl.col("grade").str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
+        ),
         month=pl.col("pick_date").dt.month().cast(pl.Int32),
     )
     .drop_nulls(["kg", "grade"])

@@ -343,10 +343,14 @@ shows = (
 )
 
 sales = sales.unique("sale_id", keep="first", maintain_order=True)
-sales = sales.with_columns(show_id=pandas_upper(pl.col("show_id").str.strip_chars()))
+sales = sales.with_columns(
+    show_id=pandas_upper(
+        pl.col("show_id").str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
+    ),
+)
 sales = sales.with_columns(
     seat_zone=pl.col("seat_zone")
-    .str.strip_chars()
+    .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
     .str.replace_many({"İ": "i", "Σ": "σ"})
     .str.to_lowercase(),
 )

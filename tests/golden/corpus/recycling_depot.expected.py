@@ -129,7 +129,7 @@ drops = (
     .drop("staff")
     .with_columns(
         material=pl.col("material")
-        .str.strip_chars()
+        .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
         .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase(),
         weight_kg=pl.col("weight_kg").cast(pl.Float64),

@@ -167,13 +167,15 @@ print("lines read:", counts.select(pl.len()).collect().item())
 #   ~pl.struct(cols).is_first_distinct() for keep='first'
 print("lines entered twice:", counts.collect().to_pandas().duplicated().sum())
 counts = counts.with_columns(
-    transect=pandas_upper(pl.col("transect").str.strip_chars()),
+    transect=pandas_upper(
+        pl.col("transect").str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
+    ),
 )
 counts = (
     counts
     .with_columns(
         tide=pl.col("tide")
-        .str.strip_chars()
+        .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
         .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase(),
     )

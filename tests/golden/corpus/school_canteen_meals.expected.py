@@ -61,7 +61,9 @@ meals = pl.scan_csv(
 print(meals.select(pl.len()).collect().item())
 
 meals = meals.with_columns(
-    class_group=pandas_upper(pl.col("class_group").str.strip_chars()),
+    class_group=pandas_upper(
+        pl.col("class_group").str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
+    ),
 )
 meals = meals.with_columns(
     tariff=pl.when(pl.col("reduced_rate") == "yes")

@@ -349,12 +349,15 @@ tags = (
     .unique("harvest_id", keep="first", maintain_order=True)
     .with_columns(
         species=pl.col("species")
-        .str.strip_chars()
+        .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
         .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase(),
     )
 )
-tags = tags.with_columns(harvester=pl.col("harvester").str.strip_chars())
+tags = tags.with_columns(
+    harvester=pl.col("harvester")
+    .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
+)
 
 # split the hand-written tag into its parts
 parts = (

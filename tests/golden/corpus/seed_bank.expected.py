@@ -165,7 +165,7 @@ def add_rates(tests):
 def attach_registry(tests, registry):
     registry = registry.with_columns(
         storage=pl.col("storage")
-        .str.strip_chars()
+        .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
         .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase(),
     )

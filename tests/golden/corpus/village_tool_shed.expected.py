@@ -186,7 +186,7 @@ print(
 )
 loans = loans.with_columns(
     tool=pl.col("tool")
-    .str.strip_chars()
+    .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
     .str.replace_many({"İ": "i", "Σ": "σ"})
     .str.to_lowercase(),
 )

@@ -69,10 +69,14 @@ df = (
 )
 print((df.select(pl.len()).collect().item(), len(df.collect_schema())))
 
-df = df.with_columns(village=pandas_upper(pl.col("village").str.strip_chars()))
+df = df.with_columns(
+    village=pandas_upper(
+        pl.col("village").str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
+    ),
+)
 df = df.with_columns(
     tariff=pl.col("tariff")
-    .str.strip_chars()
+    .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
     .str.replace_many({"İ": "i", "Σ": "σ"})
     .str.to_lowercase(),
 )
