@@ -98,7 +98,6 @@ TODOS = [
     pytest.param('df["t"].dt.strftime("%c")', "series.dt.strftime", id="strftime locale format"),
     pytest.param('df["t"].dt.round("h")', "series.dt.round", id="round"),
     pytest.param('df["t"].dt.ceil("h")', "series.dt.ceil", id="ceil"),
-    pytest.param('df["t"].dt.tz_localize("UTC")', "series.dt.tz_localize", id="tz_localize"),
     pytest.param('df["t"].dt.to_period("M")', "series.periods", id="to_period kept"),
     # the frame isocalendar() makes, and a subscript of it, stay pandas (.week ports)
     pytest.param('df["t"].dt.isocalendar()', "series.dt.isocalendar", id="isocalendar frame"),

@@ -8,7 +8,10 @@ from porter.analysis.imports import ImportFacts
 from porter.rules.datetimes import GUESS_DEFINITION, GUESS_FUNCTION
 from porter.rules.handover import TEXT_DEFINITION, TEXT_FUNCTION
 from porter.translate.handover import VALUES_DEFINITION, VALUES_FUNCTION
-from porter.rules.strings import TITLE_DEFINITION, TITLE_FUNCTION, UPPER_DEFINITION, UPPER_FUNCTION
+from porter.rules.strings import (
+    TITLE_DEFINITION, TITLE_FUNCTION, UPPER_DEFINITION, UPPER_FUNCTION, WHITESPACE_CONSTANT,
+    WHITESPACE_DEFINITION,
+)
 from porter.rules.selection import DTYPE_PROBE_CONSTANT, DTYPE_PROBE_DEFINITION
 from porter.rules.groupby import (
     GROUP_MEAN_DEFINITION, GROUP_MEAN_FUNCTION, GROUP_SUM_DEFINITION, GROUP_SUM_FUNCTION,
@@ -106,7 +109,8 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (CSV_DURATIONS_CONSTANT, CSV_DURATIONS_DEFINITION),
                                  (CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION),
                                  (CSV_ZONED_DATETIMES_CONSTANT, CSV_ZONED_DATETIMES_DEFINITION),
-                                 (DTYPE_PROBE_CONSTANT, DTYPE_PROBE_DEFINITION)):
+                                 (DTYPE_PROBE_CONSTANT, DTYPE_PROBE_DEFINITION),
+                                 (WHITESPACE_CONSTANT, WHITESPACE_DEFINITION)):
         if constant in used and not _defines(module, constant):
             body = _insert_after_imports(body, _constant(definition))
     for function, definition in ((DIVIDE_FUNCTION, DIVIDE_DEFINITION),

@@ -177,6 +177,14 @@ def pandas_quantile(column, q):
     )
 
 
+# The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
+# off: Polars' strip_chars() leaves the separators \x1c-\x1f.
+PANDAS_WHITESPACE = (
+    "\t\n\x0b\x0c\r\x1c\x1d\x1e\x1f \x85\xa0\u1680"
+    "\u2000\u2001\u2002\u2003\u2004\u2005\u2006\u2007"
+    "\u2008\u2009\u200a\u2028\u2029\u202f\u205f\u3000"
+)
+
 # One row per column that gives pandas the dtype of the whole column: the first value, or a
 # missing value where the column holds one (pandas makes such an int column float64 and a
 # True/False one object); no row when the frame has none.
@@ -259,9 +267,7 @@ def load_plots(path):
     plots = pl.scan_csv(path, null_values=PANDAS_NA_VALUES, infer_schema_length=None)
     plots = plots.rename({"water_tap": "tap"}, strict=False)
     plots = plots.with_columns(
-        section=pandas_upper(
-            pl.col("section").str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
-        ),
+        section=pandas_upper(pl.col("section").str.strip_chars(PANDAS_WHITESPACE)),
     )
     plots = plots.with_columns(
         tap=pl.col("tap").replace({"yes": "Y", "no": "N"}).fill_null(pl.lit("N")),
@@ -287,7 +293,7 @@ def load_payments(path):
     )
     payments = payments.with_columns(
         method=pl.col("method")
-        .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
+        .str.strip_chars(PANDAS_WHITESPACE)
         .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase()
         .replace("chq", "cheque"),

@@ -19,16 +19,28 @@ def pandas_title(text):
     a digraph first in a word is its upper case ("ǆemal" -> "Ǆemal", Polars: "ǅemal"), "İ"
     inside a word is "i" (Polars: i and a combining dot), and a letter Polars writes as two or
     three first in a word ("ﬁ" as "Fi") is kept: a letter without case set before it makes
-    Polars read it as inside a word, and is taken out after."""
+    Polars read it as inside a word, and is taken out after. A letter without case (CJK,
+    Hebrew, a modifier letter) ends a word for pandas, not for Polars: a mark that is no
+    letter (U+FFFF) is set after each, and taken out after."""
     kept, mark = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾲᾴᾶᾷῂῄῆῇῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷﬀ-ﬆﬓ-ﬗ]", "\ua66e"
     return (
         text.str.replace_many({"Σ": "σ", "ß": "ẞ"})
+        .str.replace_all(r"[\p{Alphabetic}&&[^\p{Lu}\p{Ll}\p{Lt}]&&[^\p{Cased}&&[\p{Nl}\x{24b6}-\x{24e9}]]]", "$0\uffff")
         .str.replace_all(kept, mark + "$0")
         .str.to_titlecase()
+        .str.replace_all("\uffff", "", literal=True)
         .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"})
         .str.replace_all(mark + f"({kept})", "$1")
     )
 
+
+# The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
+# off: Polars' strip_chars() leaves the separators \x1c-\x1f.
+PANDAS_WHITESPACE = (
+    "\t\n\x0b\x0c\r\x1c\x1d\x1e\x1f \x85\xa0\u1680"
+    "\u2000\u2001\u2002\u2003\u2004\u2005\u2006\u2007"
+    "\u2008\u2009\u200a\u2028\u2029\u202f\u205f\u3000"
+)
 
 # Datetime columns with a time zone as pandas' to_csv writes them: the time always, then the
 # offset (+01:00); no fraction of a second when none has one, milliseconds when they are enough.
@@ -119,17 +131,19 @@ print(hires.head(5).collect())
 
 # In[2]:
 def tidy(df):
-    df = df.with_columns(boat=pandas_title(pl.col("boat").str.strip_chars()))
+    df = df.with_columns(
+        boat=pandas_title(pl.col("boat").str.strip_chars(PANDAS_WHITESPACE)),
+    )
     df = df.with_columns(boat=pl.col("boat").replace({"Ebène": "Ébène"}))
     df = df.with_columns(
         base=pl.col("base")
-        .str.strip_chars()
+        .str.strip_chars(PANDAS_WHITESPACE)
         .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase(),
     )
     df = df.with_columns(
         damage=pl.col("damage")
-        .str.strip_chars()
+        .str.strip_chars(PANDAS_WHITESPACE)
         .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase(),
     )

@@ -33,6 +33,14 @@ def pandas_upper(text):
         text.str.to_uppercase())
 
 
+# The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
+# off: Polars' strip_chars() leaves the separators \x1c-\x1f.
+PANDAS_WHITESPACE = (
+    "\t\n\x0b\x0c\r\x1c\x1d\x1e\x1f \x85\xa0\u1680"
+    "\u2000\u2001\u2002\u2003\u2004\u2005\u2006\u2007"
+    "\u2008\u2009\u200a\u2028\u2029\u202f\u205f\u3000"
+)
+
 # One row per column that gives pandas the dtype of the whole column: the first value, or a
 # missing value where the column holds one (pandas makes such an int column float64 and a
 # True/False one object); no row when the frame has none.
@@ -137,9 +145,7 @@ tickets = tickets.with_columns(
 )
 
 tickets = tickets.with_columns(
-    route_code=pandas_upper(
-        pl.col("route_code").str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
-    ),
+    route_code=pandas_upper(pl.col("route_code").str.strip_chars(PANDAS_WHITESPACE)),
 )
 tickets = tickets.with_columns(
     fare_class=pl.col("fare_class")
@@ -148,7 +154,7 @@ tickets = tickets.with_columns(
 )
 tickets = tickets.with_columns(
     vehicle=pl.col("vehicle")
-    .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
+    .str.strip_chars(PANDAS_WHITESPACE)
     .str.replace_many({"İ": "i", "Σ": "σ"})
     .str.to_lowercase(),
 )

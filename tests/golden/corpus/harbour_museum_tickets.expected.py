@@ -34,6 +34,14 @@ def pandas_upper(text):
         text.str.to_uppercase())
 
 
+# The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
+# off: Polars' strip_chars() leaves the separators \x1c-\x1f.
+PANDAS_WHITESPACE = (
+    "\t\n\x0b\x0c\r\x1c\x1d\x1e\x1f \x85\xa0\u1680"
+    "\u2000\u2001\u2002\u2003\u2004\u2005\u2006\u2007"
+    "\u2008\u2009\u200a\u2028\u2029\u202f\u205f\u3000"
+)
+
 # %% load
 tix = (
     pl.scan_csv(
@@ -179,11 +187,7 @@ shows = shows.with_columns(
     days_open=(pl.col("closes") - pl.col("opens")).dt.total_microseconds() // 86_400_000_000 + 1,
 )
 shows = shows.with_columns(
-    short=pandas_upper(
-        pl.col("title")
-        .str.head(10)
-        .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
-    ),
+    short=pandas_upper(pl.col("title").str.head(10).str.strip_chars(PANDAS_WHITESPACE)),
 )
 print(shows.collect())
 

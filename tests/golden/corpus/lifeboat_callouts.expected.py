@@ -41,6 +41,14 @@ def pandas_div(numerator, divisor):
     return numerator / (numerator.is_null() * 0 + divisor)
 
 
+# The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
+# off: Polars' strip_chars() leaves the separators \x1c-\x1f.
+PANDAS_WHITESPACE = (
+    "\t\n\x0b\x0c\r\x1c\x1d\x1e\x1f \x85\xa0\u1680"
+    "\u2000\u2001\u2002\u2003\u2004\u2005\u2006\u2007"
+    "\u2008\u2009\u200a\u2028\u2029\u202f\u205f\u3000"
+)
+
 # One row per column that gives pandas the dtype of the whole column: the first value, or a
 # missing value where the column holds one (pandas makes such an int column float64 and a
 # True/False one object); no row when the frame has none.
@@ -132,12 +140,12 @@ print(shouts.select(PANDAS_DTYPE_PROBE).collect().to_pandas().dtypes)
 shouts = shouts.unique(keep="first", maintain_order=True)
 shouts = shouts.with_columns(
     boat=pl.col("boat")
-    .str.strip_chars()
+    .str.strip_chars(PANDAS_WHITESPACE)
     .str.replace_many({"İ": "i", "Σ": "σ"})
     .str.to_lowercase(),
 )
 shouts = shouts.with_columns(
-    coxswain=pandas_upper(pl.col("coxswain").str.strip_chars().str.head(1)) + pl.col("coxswain").str.strip_chars().str.slice(1).str.replace_many({"İ": "i", "Σ": "σ"}).str.to_lowercase(),
+    coxswain=pandas_upper(pl.col("coxswain").str.strip_chars(PANDAS_WHITESPACE).str.head(1)) + pl.col("coxswain").str.strip_chars(PANDAS_WHITESPACE).str.slice(1).str.replace_many({"İ": "i", "Σ": "σ"}).str.to_lowercase(),
 )
 shouts = shouts.with_columns(coxswain=pl.col("coxswain").replace({"Maree": "Marée"}))
 # stamps with or without seconds: keep the minutes

@@ -103,6 +103,14 @@ def pandas_sort_values(frame, by, descending=False, nulls_last=True):
     )
 
 
+# The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
+# off: Polars' strip_chars() leaves the separators \x1c-\x1f.
+PANDAS_WHITESPACE = (
+    "\t\n\x0b\x0c\r\x1c\x1d\x1e\x1f \x85\xa0\u1680"
+    "\u2000\u2001\u2002\u2003\u2004\u2005\u2006\u2007"
+    "\u2008\u2009\u200a\u2028\u2029\u202f\u205f\u3000"
+)
+
 # Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
 # writes 0.00005 and 1.5e-7; NaN as an empty field.
 PANDAS_CSV_FLOATS = (
@@ -126,7 +134,7 @@ FOG_NM = 2   # below two nautical miles the horn goes on
 
 def tidy_names(s):
     # keepers type their own names, in any case, sometimes with a leading space
-    return pandas_title(s.str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""))
+    return pandas_title(s.str.strip_chars(PANDAS_WHITESPACE))
 
 
 log = pl.scan_csv(
@@ -143,9 +151,7 @@ print("raw lines:", log.select(pl.len()).collect().item())
 
 log = log.unique(keep="first", maintain_order=True)
 log = log.with_columns(
-    station=pandas_upper(
-        pl.col("station").str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
-    ),
+    station=pandas_upper(pl.col("station").str.strip_chars(PANDAS_WHITESPACE)),
 )
 log = log.with_columns(keeper=tidy_names(pl.col('keeper')))
 log = log.with_columns(

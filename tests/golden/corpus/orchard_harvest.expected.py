@@ -150,6 +150,14 @@ def pandas_to_datetime(text, coerce):
     return read(pl.coalesce(guessed if coerce else [*guessed, text]), not coerce)
 
 
+# The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
+# off: Polars' strip_chars() leaves the separators \x1c-\x1f.
+PANDAS_WHITESPACE = (
+    "\t\n\x0b\x0c\r\x1c\x1d\x1e\x1f \x85\xa0\u1680"
+    "\u2000\u2001\u2002\u2003\u2004\u2005\u2006\u2007"
+    "\u2008\u2009\u200a\u2028\u2029\u202f\u205f\u3000"
+)
+
 # Datetime columns with a time zone as pandas' to_csv writes them: the time always, then the
 # offset (+01:00); no fraction of a second when none has one, milliseconds when they are enough.
 PANDAS_CSV_ZONED_DATETIMES = (
@@ -242,12 +250,10 @@ clean = (
     weighings
     .with_columns(
         variety=pl.col("variety")
-        .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
+        .str.strip_chars(PANDAS_WHITESPACE)
         .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase(),
-        grade=pandas_upper(
-            pl.col("grade").str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
-        ),
+        grade=pandas_upper(pl.col("grade").str.strip_chars(PANDAS_WHITESPACE)),
         month=pl.col("pick_date").dt.month().cast(pl.Int32),
     )
     .drop_nulls(["kg", "grade"])

@@ -74,6 +74,14 @@ def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None)
     return pl.map_batches([values, clean], add, return_dtype=pl.Float64)
 
 
+# The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
+# off: Polars' strip_chars() leaves the separators \x1c-\x1f.
+PANDAS_WHITESPACE = (
+    "\t\n\x0b\x0c\r\x1c\x1d\x1e\x1f \x85\xa0\u1680"
+    "\u2000\u2001\u2002\u2003\u2004\u2005\u2006\u2007"
+    "\u2008\u2009\u200a\u2028\u2029\u202f\u205f\u3000"
+)
+
 # One row per column that gives pandas the dtype of the whole column: the first value, or a
 # missing value where the column holds one (pandas makes such an int column float64 and a
 # True/False one object); no row when the frame has none.
@@ -129,7 +137,7 @@ drops = (
     .drop("staff")
     .with_columns(
         material=pl.col("material")
-        .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
+        .str.strip_chars(PANDAS_WHITESPACE)
         .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase(),
         weight_kg=pl.col("weight_kg").cast(pl.Float64),

@@ -59,6 +59,14 @@ def pandas_upper(text):
         text.str.to_uppercase())
 
 
+# The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
+# off: Polars' strip_chars() leaves the separators \x1c-\x1f.
+PANDAS_WHITESPACE = (
+    "\t\n\x0b\x0c\r\x1c\x1d\x1e\x1f \x85\xa0\u1680"
+    "\u2000\u2001\u2002\u2003\u2004\u2005\u2006\u2007"
+    "\u2008\u2009\u200a\u2028\u2029\u202f\u205f\u3000"
+)
+
 # Datetime columns with a time zone as pandas' to_csv writes them: the time always, then the
 # offset (+01:00); no fraction of a second when none has one, milliseconds when they are enough.
 PANDAS_CSV_ZONED_DATETIMES = (
@@ -141,9 +149,7 @@ stations = pl.scan_csv(
 
 readings = readings.unique(keep="first", maintain_order=True)
 readings = readings.with_columns(
-    gauge=pandas_upper(
-        pl.col("gauge").str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
-    ),
+    gauge=pandas_upper(pl.col("gauge").str.strip_chars(PANDAS_WHITESPACE)),
 )
 readings = (
     readings

@@ -159,6 +159,14 @@ def pandas_to_datetime(text, coerce):
     return read(pl.coalesce(guessed if coerce else [*guessed, text]), not coerce)
 
 
+# The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
+# off: Polars' strip_chars() leaves the separators \x1c-\x1f.
+PANDAS_WHITESPACE = (
+    "\t\n\x0b\x0c\r\x1c\x1d\x1e\x1f \x85\xa0\u1680"
+    "\u2000\u2001\u2002\u2003\u2004\u2005\u2006\u2007"
+    "\u2008\u2009\u200a\u2028\u2029\u202f\u205f\u3000"
+)
+
 # Datetime columns with a time zone as pandas' to_csv writes them: the time always, then the
 # offset (+01:00); no fraction of a second when none has one, milliseconds when they are enough.
 PANDAS_CSV_ZONED_DATETIMES = (
@@ -266,13 +274,11 @@ HOURLY_RATE = 38   # per hour, agreed with the ferry board in 2023
 
 def clean_jobs(jobs):
     jobs = jobs.with_columns(
-        ferry=pandas_title(
-            pl.col("ferry").str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
-        ),
+        ferry=pandas_title(pl.col("ferry").str.strip_chars(PANDAS_WHITESPACE)),
     )
     jobs = jobs.with_columns(
         status=pl.col('status')
-        .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
+        .str.strip_chars(PANDAS_WHITESPACE)
         .str.replace_many({"İ": "i", "Σ": "σ"})
         .str.to_lowercase(),
     )
@@ -327,7 +333,7 @@ jobs = jobs.with_columns(part=pl.col("parts_used").str.split(";")).collect().laz
 lines = jobs.explode("part", empty_as_null=True, keep_nulls=True)
 lines = lines.with_columns(
     part=pl.col("part")
-    .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
+    .str.strip_chars(PANDAS_WHITESPACE)
     .str.replace_many({"İ": "i", "Σ": "σ"})
     .str.to_lowercase(),
 )

@@ -34,6 +34,14 @@ def pandas_upper(text):
         text.str.to_uppercase())
 
 
+# The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
+# off: Polars' strip_chars() leaves the separators \x1c-\x1f.
+PANDAS_WHITESPACE = (
+    "\t\n\x0b\x0c\r\x1c\x1d\x1e\x1f \x85\xa0\u1680"
+    "\u2000\u2001\u2002\u2003\u2004\u2005\u2006\u2007"
+    "\u2008\u2009\u200a\u2028\u2029\u202f\u205f\u3000"
+)
+
 # Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
 # writes 0.00005 and 1.5e-7; NaN as an empty field.
 PANDAS_CSV_FLOATS = (
@@ -70,13 +78,11 @@ df = (
 print((df.select(pl.len()).collect().item(), len(df.collect_schema())))
 
 df = df.with_columns(
-    village=pandas_upper(
-        pl.col("village").str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", ""),
-    ),
+    village=pandas_upper(pl.col("village").str.strip_chars(PANDAS_WHITESPACE)),
 )
 df = df.with_columns(
     tariff=pl.col("tariff")
-    .str.replace_all("^[\\s\\x1c-\\x1f]+|[\\s\\x1c-\\x1f]+$", "")
+    .str.strip_chars(PANDAS_WHITESPACE)
     .str.replace_many({"İ": "i", "Σ": "σ"})
     .str.to_lowercase(),
 )
