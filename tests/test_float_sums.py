@@ -238,3 +238,28 @@ def test_groupby_of_rows_sorted_by_their_keys_is_numpy_reduceat(tmp_path):
             e = pd.read_csv(f"{name}.csv", dtype={"station": str})
             e.groupby("station")["temp"].sum().to_csv(f"{name}_out.csv")
     """, tmp_path, files)
+
+
+def test_sums_of_columns_of_unknown_type_are_pandas_too(tmp_path):
+    # without --data, or after a frame came back from pandas, porter does not know that a
+    # column holds floats: its group sums and means are still pandas' (ten 0.1 are 1.0 in
+    # pandas' compensated sum, 0.9999999999999999 in Polars' own), whole numbers and
+    # True/False stay whole
+    rows = "".join(f"a,0.1,{i},True\nb,0.3,2,False\n" for i in range(10))
+    script = """
+        import pandas as pd
+        d = pd.read_csv("f.csv")
+        def tidy(df):
+            df["k"] = df["k"].str.upper()
+        tidy(d)
+        out = d.groupby("k", as_index=False).agg(v=("v", "sum"), m=("v", "mean"),
+                                                  n=("n", "sum"), b=("flag", "sum"))
+        out.to_csv("o.csv", index=False)
+        print(d.groupby("k")["v"].sum().tolist(), d.groupby("k")["n"].mean().tolist())
+        e = pd.read_csv("f.csv")
+        e.groupby("k")["v"].sum().to_csv("plain.csv")
+    """
+    (tmp_path / "with").mkdir()
+    (tmp_path / "without").mkdir()
+    same_text(script, tmp_path / "with", {"f.csv": "k,v,n,flag\n" + rows})
+    same_text(script, tmp_path / "without", {"f.csv": "k,v,n,flag\n" + rows}, with_data=False)

@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import ast
 from dataclasses import dataclass, field, replace
-from typing import Any
+from typing import Any, Collection
 
 import libcst as cst
 
@@ -44,7 +44,7 @@ COUNTS = {"count", "nunique", "size"}
 # their own), exactly pandas' result; about 0.1 s per 1,000,000 values.
 GROUP_SUMS_FUNCTION = "pandas_group_sums"
 GROUP_SUMS_DEFINITION = '''\
-def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None):
+def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None, floats=True):
     """Each group's sum of floats (mean=True: mean) as pandas computes it, from the group's
     values as a list (pl.col(...) in an agg). pandas adds a group with a compensated (Kahan)
     sum in row order, missing values skipped; where the rows reach it grouped in the order
@@ -53,11 +53,15 @@ def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None)
     rows are binned together, [] for all rows) where no value of those rows is missing, or a
     groupby whose in_key_order says so (computed on the rows before grouping). Polars' own
     sum adds in another order and can end a unit in the last digit away (212.40000000000003
-    for 212.4)."""
+    for 212.4). floats=False: the column's type is not known; whole numbers and True/False
+    are added as Polars adds them (exactly), into Int64."""
     import numpy as np
 
     def add(columns):
         lists = columns[0]
+        if lists.dtype.inner != pl.Float64:  # whole numbers, True/False: exact sums
+            total = lists.list.mean() if mean else lists.list.sum()
+            return total.cast(pl.Int64) if total.dtype.is_unsigned_integer() else total
         sizes = lists.list.len().cast(pl.Int64).to_numpy()
         flat = lists.explode().cast(pl.Float64).to_numpy()  # an empty list: one NaN
         starts = np.concatenate(([0], np.maximum(sizes, 1).cumsum()[:-1])).astype(np.int64)
@@ -95,14 +99,15 @@ def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None)
             return pl.Series(total)
         return pl.Series(total / np.where(count > 0, count, np.nan)).fill_nan(None)
 
+    kind = pl.Float64 if floats else None
     if sorted_within is None and in_key_order is None:
-        return values.map_batches(lambda lists: add([lists]), return_dtype=pl.Float64)
-    missing = values.list.eval(pl.element().fill_nan(None).is_null()).list.any()
+        return values.map_batches(lambda lists: add([lists]), return_dtype=kind)
+    missing = values.list.eval(pl.element().cast(pl.Float64).fill_nan(None).is_null()).list.any()
     if in_key_order is not None:
         clean = in_key_order & ~missing.any()
     else:
         clean = ~(missing.any().over(sorted_within) if sorted_within else missing.any())
-    return pl.map_batches([values, clean], add, return_dtype=pl.Float64)
+    return pl.map_batches([values, clean], add, return_dtype=kind)
 '''
 
 # Where the sum is part of a larger expression (a window's over(), a division), it is the
@@ -130,7 +135,7 @@ def pandas_group_mean(x):
 
 
 def agg_with_sums(code: Code, *exprs: Code, sorted_within: tuple[str, ...] | None = None,
-                  in_key_order: str | None = None) -> Code:
+                  in_key_order: str | None = None, untyped: Collection[str] = ()) -> Code:
     """code.agg(*exprs), where each float sum or mean that agg_expr made and that is an
     aggregate of its own (pandas_group_sum(pl.col("x")), maybe aliased) is added as pandas adds
     it: the agg keeps the group's values as a list and pandas_group_sums adds them after.
@@ -139,17 +144,22 @@ def agg_with_sums(code: Code, *exprs: Code, sorted_within: tuple[str, ...] | Non
     time), binned together within these keys (() for all rows): pandas then adds a group with
     numpy's reduceat where none of those rows is missing (GROUP_SUMS_DEFINITION).
     `in_key_order`: the column of the frame (IN_KEY_ORDER, in_key_order_flag) that says whether
-    the rows come sorted by the keys; taken into the agg and dropped after."""
+    the rows come sorted by the keys; taken into the agg and dropped after.
+    `untyped`: columns whose type porter does not know (no --data, after a hand-over): their
+    plain sum() and mean() go through pandas_group_sums too, which adds floats as pandas
+    and whole numbers as before (floats=False)."""
     inner: list[Code] = []
     after: list[Code] = []
     for expr in exprs:
-        split = _own_group_sum(expr)
+        split = _own_group_sum(expr, untyped)
         if split is None:
             inner.append(expr)
             continue
-        values, name, mean = split
+        values, name, mean, floats = split
         inner.append(values if values.text == emit.col(name).text else values.method("alias", name))
         options: dict[str, object] = {"mean": True} if mean else {}
+        if not floats:
+            options["floats"] = False
         if sorted_within is not None:
             options["sorted_within"] = list(sorted_within)
         if in_key_order is not None:
@@ -164,10 +174,21 @@ def agg_with_sums(code: Code, *exprs: Code, sorted_within: tuple[str, ...] | Non
     return code.method("drop", in_key_order) if in_key_order is not None else code
 
 
+class UntypedColumns:
+    """The columns of a frame whose type porter does not know (`in` tells), for agg_with_sums."""
+
+    def __init__(self, frame: Frame) -> None:
+        self.frame = frame
+
+    def __contains__(self, name: object) -> bool:
+        return isinstance(name, str) and self.frame.dtype(name) is None
+
+
 IN_KEY_ORDER = "_porter_rows_in_key_order"
 
 
-def in_key_order_flag(grouped: Grouped, exprs: list[Code]) -> Code | None:
+def in_key_order_flag(grouped: Grouped, exprs: list[Code],
+                      untyped: Collection[str] = ()) -> Code | None:
     """For a groupby with float sums of their own (agg_with_sums), a flag computed on the rows
     before grouping: whether they come sorted by the keys, those with a missing key first
     (pandas drops them): pandas 3.1's group ids are then monotonic, and it adds a column
@@ -179,7 +200,7 @@ def in_key_order_flag(grouped: Grouped, exprs: list[Code]) -> Code | None:
     if any(grouped.frame.dtype(k) not in ("str", "int", "datetime", "date", "bool")
            for k in grouped.keys):
         return None
-    if not any(_own_group_sum(e) is not None for e in exprs):
+    if not any(_own_group_sum(e, untyped) is not None for e in exprs):
         return None
     keys = list(grouped.keys)
     if len(keys) == 1:
@@ -189,9 +210,19 @@ def in_key_order_flag(grouped: Grouped, exprs: list[Code]) -> Code | None:
     return emit.when(complete, emit.pl("struct", *keys)).method("is_sorted")
 
 
-def _own_group_sum(expr: Code) -> tuple[Code, str, bool] | None:
-    """(the values, the output's name, whether a mean) of pandas_group_sum(values) or
-    pandas_group_mean(values), alone or aliased; None for any other expression."""
+def _plain_column(node: ast.expr) -> str | None:
+    """The name in pl.col("name"), or None for another expression."""
+    if isinstance(node, ast.Call) and ast.unparse(node.func) == "pl.col" and len(node.args) == 1 \
+            and not node.keywords and isinstance(node.args[0], ast.Constant) \
+            and isinstance(node.args[0].value, str):
+        return node.args[0].value
+    return None
+
+
+def _own_group_sum(expr: Code, untyped: Collection[str] = ()) -> tuple[Code, str, bool, bool] | None:
+    """(the values, the output's name, whether a mean, whether known floats) of
+    pandas_group_sum(values) or pandas_group_mean(values), or of pl.col(c).sum() / mean() of
+    a column c in `untyped`, alone or aliased; None for any other expression."""
     try:
         node = ast.parse(expr.text, mode="eval").body
     except SyntaxError:
@@ -201,6 +232,12 @@ def _own_group_sum(expr: Code) -> tuple[Code, str, bool] | None:
             and node.func.attr == "alias" and len(node.args) == 1 and not node.keywords \
             and isinstance(node.args[0], ast.Constant) and isinstance(node.args[0].value, str):
         name, node = node.args[0].value, node.func.value
+    if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
+            and node.func.attr in ("sum", "mean") and not node.args and not node.keywords:
+        column = _plain_column(node.func.value)
+        if column is None or column not in untyped:
+            return None
+        return emit.col(column), name or column, node.func.attr == "mean", False
     if not (isinstance(node, ast.Call) and isinstance(node.func, ast.Name)
             and node.func.id in (GROUP_SUM_FUNCTION, GROUP_MEAN_FUNCTION)
             and len(node.args) == 1 and not node.keywords):
@@ -209,13 +246,10 @@ def _own_group_sum(expr: Code) -> tuple[Code, str, bool] | None:
     if values is None:
         return None
     if name is None:  # the output is named after the column the values come from
-        inner = node.args[0]
-        if not (isinstance(inner, ast.Call) and ast.unparse(inner.func) == "pl.col"
-                and len(inner.args) == 1 and isinstance(inner.args[0], ast.Constant)
-                and isinstance(inner.args[0].value, str) and not inner.keywords):
+        name = _plain_column(node.args[0])
+        if name is None:
             return None
-        name = inner.args[0].value
-    return emit.atom(values), name, node.func.id == GROUP_MEAN_FUNCTION
+    return emit.atom(values), name, node.func.id == GROUP_MEAN_FUNCTION, True
 
 
 def pandas_median(column: Code) -> Code:
@@ -497,7 +531,8 @@ def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleCo
         # the frame's first zero
         grouped = replace(grouped, frame=replace(grouped.frame, code=grouped.frame.code.method(
             "with_columns", *(emit.col(k).method("first").method("over", k) for k in zeros))))
-    flag = in_key_order_flag(grouped, exprs) if order is None else None
+    untyped = UntypedColumns(grouped.frame)
+    flag = in_key_order_flag(grouped, exprs, untyped) if order is None else None
     if flag is not None:
         # pandas adds a group's floats one of two ways, chosen by how the rows come
         grouped = replace(grouped, frame=replace(grouped.frame, code=grouped.frame.code.method(
@@ -505,7 +540,7 @@ def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleCo
     code = agg_with_sums(
         grouping_code(grouped if order is None else replace(grouped, sort=False)),
         *exprs, *(emit.col(k).method("first").method("alias", ZERO_KEY + k) for k in zeros),
-        in_key_order=IN_KEY_ORDER if flag is not None else None)
+        in_key_order=IN_KEY_ORDER if flag is not None else None, untyped=untyped)
     if zeros:
         code = code.method("with_columns", *(emit.col(ZERO_KEY + k).method("alias", k)
                                              for k in zeros)).method(

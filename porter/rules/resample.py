@@ -35,7 +35,7 @@ from typing import Any
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.rules.groupby import agg_dtype, agg_expr, agg_with_sums, how_name
+from porter.rules.groupby import UntypedColumns, agg_dtype, agg_expr, agg_with_sums, how_name
 from porter.rules.ops import float32_possible
 from porter.translate import handover
 from porter.translate.context import PandasCall, RuleContext, Unsupported, column_names, derive
@@ -514,7 +514,8 @@ def _binned(resampled: Resampled, outputs: list[_Output], ctx: RuleContext,
     binned_in_order = tuple(k for k in resampled.keys if k != time) if resampled.time_order \
         else None
     code = agg_with_sums(code.method("group_by", emit.names_arg(resampled.keys)),
-                         *(o.aliased() for o in outputs), sorted_within=binned_in_order)
+                         *(o.aliased() for o in outputs), sorted_within=binned_in_order,
+                         untyped=UntypedColumns(frame))
     dtypes: list[str | None] = [agg_dtype(o.how, o.dtype) for o in outputs]
     if any(o.how == "sum" and o.dtype is None for o in outputs):
         # a sum of a column of unknown type may be a sum of True/False: UInt32 in Polars

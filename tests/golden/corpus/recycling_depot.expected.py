@@ -13,7 +13,7 @@ PANDAS_NA_VALUES = [
 ]
 
 
-def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None):
+def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None, floats=True):
     """Each group's sum of floats (mean=True: mean) as pandas computes it, from the group's
     values as a list (pl.col(...) in an agg). pandas adds a group with a compensated (Kahan)
     sum in row order, missing values skipped; where the rows reach it grouped in the order
@@ -22,11 +22,15 @@ def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None)
     rows are binned together, [] for all rows) where no value of those rows is missing, or a
     groupby whose in_key_order says so (computed on the rows before grouping). Polars' own
     sum adds in another order and can end a unit in the last digit away (212.40000000000003
-    for 212.4)."""
+    for 212.4). floats=False: the column's type is not known; whole numbers and True/False
+    are added as Polars adds them (exactly), into Int64."""
     import numpy as np
 
     def add(columns):
         lists = columns[0]
+        if lists.dtype.inner != pl.Float64:  # whole numbers, True/False: exact sums
+            total = lists.list.mean() if mean else lists.list.sum()
+            return total.cast(pl.Int64) if total.dtype.is_unsigned_integer() else total
         sizes = lists.list.len().cast(pl.Int64).to_numpy()
         flat = lists.explode().cast(pl.Float64).to_numpy()  # an empty list: one NaN
         starts = np.concatenate(([0], np.maximum(sizes, 1).cumsum()[:-1])).astype(np.int64)
@@ -64,14 +68,15 @@ def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None)
             return pl.Series(total)
         return pl.Series(total / np.where(count > 0, count, np.nan)).fill_nan(None)
 
+    kind = pl.Float64 if floats else None
     if sorted_within is None and in_key_order is None:
-        return values.map_batches(lambda lists: add([lists]), return_dtype=pl.Float64)
-    missing = values.list.eval(pl.element().fill_nan(None).is_null()).list.any()
+        return values.map_batches(lambda lists: add([lists]), return_dtype=kind)
+    missing = values.list.eval(pl.element().cast(pl.Float64).fill_nan(None).is_null()).list.any()
     if in_key_order is not None:
         clean = in_key_order & ~missing.any()
     else:
         clean = ~(missing.any().over(sorted_within) if sorted_within else missing.any())
-    return pl.map_batches([values, clean], add, return_dtype=pl.Float64)
+    return pl.map_batches([values, clean], add, return_dtype=kind)
 
 
 # The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes

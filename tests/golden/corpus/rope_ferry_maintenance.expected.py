@@ -21,6 +21,72 @@ def pandas_text_values(values):
     return values.to_pandas().unique() if values.null_count() else values.to_numpy()
 
 
+def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None, floats=True):
+    """Each group's sum of floats (mean=True: mean) as pandas computes it, from the group's
+    values as a list (pl.col(...) in an agg). pandas adds a group with a compensated (Kahan)
+    sum in row order, missing values skipped; where the rows reach it grouped in the order
+    of the sorted keys and none is missing, with numpy's reduceat: the first value plus
+    numpy's pairwise sum of the rest. That is a resample (sorted_within names the keys whose
+    rows are binned together, [] for all rows) where no value of those rows is missing, or a
+    groupby whose in_key_order says so (computed on the rows before grouping). Polars' own
+    sum adds in another order and can end a unit in the last digit away (212.40000000000003
+    for 212.4). floats=False: the column's type is not known; whole numbers and True/False
+    are added as Polars adds them (exactly), into Int64."""
+    import numpy as np
+
+    def add(columns):
+        lists = columns[0]
+        if lists.dtype.inner != pl.Float64:  # whole numbers, True/False: exact sums
+            total = lists.list.mean() if mean else lists.list.sum()
+            return total.cast(pl.Int64) if total.dtype.is_unsigned_integer() else total
+        sizes = lists.list.len().cast(pl.Int64).to_numpy()
+        flat = lists.explode().cast(pl.Float64).to_numpy()  # an empty list: one NaN
+        starts = np.concatenate(([0], np.maximum(sizes, 1).cumsum()[:-1])).astype(np.int64)
+        order = np.argsort(-sizes, kind="stable")  # the longest groups first
+        total, carry, count = (np.zeros(len(sizes)) for _ in range(3))
+        step, longest = 0, int(sizes[order[0]]) if len(sizes) else 0
+        with np.errstate(invalid="ignore"):  # inf - inf: a NaN carry, set back to 0
+            while step < longest:  # the groups side by side, one value of each per step
+                at = order[:int(np.searchsorted(-sizes[order], -step))]  # the longer ones
+                if len(at) <= 100:
+                    break  # a few long groups are quicker one at a time
+                x = flat[starts[at] + step]
+                seen = x == x
+                y = x - carry[at]
+                t = total[at] + y
+                c = (t - total[at]) - y
+                total[at] = np.where(seen, t, total[at])
+                carry[at] = np.where(seen, np.where(c == c, c, 0.0), carry[at])
+                count[at] += seen
+                step += 1
+            rest = order[:int(np.searchsorted(-sizes[order], -step))] if step < longest else ()
+            for g in rest:  # each long group on its own, from where the steps stopped
+                t, c, k = float(total[g]), float(carry[g]), float(count[g])
+                for x in flat[starts[g] + step:starts[g] + sizes[g]].tolist():
+                    if x == x:
+                        y = x - c
+                        s = t + y
+                        c = (s - t) - y
+                        c, t, k = c if c == c else 0.0, s, k + 1
+                total[g], count[g] = t, k
+            if len(columns) > 1 and len(sizes):
+                clean = columns[1].to_numpy() & (sizes > 0)
+                total = np.where(clean, np.add.reduceat(flat, starts), total)
+        if not mean:
+            return pl.Series(total)
+        return pl.Series(total / np.where(count > 0, count, np.nan)).fill_nan(None)
+
+    kind = pl.Float64 if floats else None
+    if sorted_within is None and in_key_order is None:
+        return values.map_batches(lambda lists: add([lists]), return_dtype=kind)
+    missing = values.list.eval(pl.element().cast(pl.Float64).fill_nan(None).is_null()).list.any()
+    if in_key_order is not None:
+        clean = in_key_order & ~missing.any()
+    else:
+        clean = ~(missing.any().over(sorted_within) if sorted_within else missing.any())
+    return pl.map_batches([values, clean], add, return_dtype=kind)
+
+
 def pandas_title(text):
     """text.str.to_titlecase() as pandas' str.title() writes it (pyarrow's kernel, one letter
     at a time): "Σ" is "σ" at the end of a word too, "ß" first in a word is "ẞ" (Polars: "Ss"),
@@ -350,7 +416,8 @@ parts_per_job = (
     lines
     .drop_nulls("job_id")
     .group_by("job_id")
-    .agg(pl.col("unit_cost").sum())
+    .agg(pl.col("unit_cost"))
+    .with_columns(pandas_group_sums(pl.col("unit_cost"), floats=False))
     .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("job_id")
     .rename({"unit_cost": "parts_cost"})
@@ -374,15 +441,35 @@ job_costs = job_costs.with_columns(
 
 per_ferry = (
     job_costs
+    .with_columns(_porter_rows_in_key_order=pl.col("ferry").is_sorted())
     .drop_nulls("ferry")
     .group_by("ferry")
     .agg(
         pl.col("job_id").count().cast(pl.Int64).alias("jobs"),
-        pl.col("hours").sum().alias("hours"),
-        pl.col("labour").sum().alias("labour"),
-        pl.col("parts_cost").sum().alias("parts"),
+        pl.col("hours"),
+        pl.col("labour"),
+        pl.col("parts_cost").alias("parts"),
         pl.col("parts_per_hour").max().alias("worst_ratio"),
+        pl.col("_porter_rows_in_key_order").first(),
     )
+    .with_columns(
+        pandas_group_sums(
+            pl.col("hours"),
+            floats=False,
+            in_key_order=pl.col("_porter_rows_in_key_order"),
+        ),
+        pandas_group_sums(
+            pl.col("labour"),
+            floats=False,
+            in_key_order=pl.col("_porter_rows_in_key_order"),
+        ),
+        pandas_group_sums(
+            pl.col("parts"),
+            floats=False,
+            in_key_order=pl.col("_porter_rows_in_key_order"),
+        ),
+    )
+    .drop("_porter_rows_in_key_order")
     .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("ferry")
 )
@@ -421,8 +508,9 @@ usage = (
     .group_by(["part", "supplier"])
     .agg(
         pl.col("job_id").count().cast(pl.Int64).alias("fitted"),
-        pl.col("unit_cost").sum().alias("spent"),
+        pl.col("unit_cost").alias("spent"),
     )
+    .with_columns(pandas_group_sums(pl.col("spent"), floats=False))
     .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort(["part", "supplier"], nulls_last=True)
 )
@@ -477,9 +565,18 @@ deferred = (
     .sink_csv("deferred_parts.csv")
 )
 print(
-    deferred.drop_nulls("ferry")
+    deferred.with_columns(_porter_rows_in_key_order=pl.col("ferry").is_sorted())
+    .drop_nulls("ferry")
     .group_by("ferry")
-    .agg(pl.col("unit_cost").sum())
+    .agg(pl.col("unit_cost"), pl.col("_porter_rows_in_key_order").first())
+    .with_columns(
+        pandas_group_sums(
+            pl.col("unit_cost"),
+            floats=False,
+            in_key_order=pl.col("_porter_rows_in_key_order"),
+        ),
+    )
+    .drop("_porter_rows_in_key_order")
     .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("ferry")
     .select(pl.col("ferry"), pl.col("unit_cost").round(2).alias("unit_cost"))
