@@ -1,4 +1,4 @@
-"""Reading and writing files, and values handed over (session 14): parquet files pandas wrote
+"""Reading and writing files, and values handed over: parquet files pandas wrote
 with its nullable dtypes, files the script writes and reads back, and what Python code is given.
 
 pandas is the reference: each check runs the script with pandas and its conversion with Polars

@@ -1,4 +1,4 @@
-"""Number types pandas 3.1 keeps or changes (round 14): whole floats put into int columns,
+"""Number types pandas 3.1 keeps or changes: whole floats put into int columns,
 missing values beside whole numbers, int arithmetic in row functions, to_numeric of text.
 
 pandas is the reference: each check runs the script with pandas and its conversion with Polars

@@ -1,4 +1,4 @@
-"""Windows met in the corpus scripts of round 14 (issue 10): round() or abs() of a window
+"""Windows met in the corpus scripts (issue 10): round() or abs() of a window
 within groups, time windows of a frame (`df.rolling("30D", on="t")[col]`), and the running
 sum of a True/False column read with a blank.
 
