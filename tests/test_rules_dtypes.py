@@ -72,9 +72,8 @@ def test_probe_on_tricky_frames() -> None:
 @pytest.mark.parametrize("make", [
     # an Int64 column that a statement kept on pandas hands back without its mark
     'df["n"] = df["plot"].fillna(0).astype("Int64")\ndf["c"] = pd.Categorical(df["crop"])',
-    pytest.param('df["crop"] = df["crop"].astype("string")', marks=pytest.mark.xfail(
-        strict=True, reason="astype('string') is ported to Polars' text: handed back to pandas "
-                            "the column is str, not string (the dtype name differs)")),
+    # a hand-over gives pandas' nullable types back (astype("string") was str there)
+    'df["crop"] = df["crop"].astype("string")',
     'df = df.convert_dtypes()',
 ])
 def test_pandas_nullable_types_are_named_as_pandas_names_them(make: str, tmp_path) -> None:
