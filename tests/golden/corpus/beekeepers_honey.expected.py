@@ -54,12 +54,21 @@ def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None,
             rest = order[:int(np.searchsorted(-sizes[order], -step))] if step < longest else ()
             for g in rest:  # each long group on its own, from where the steps stopped
                 t, c, k = float(total[g]), float(carry[g]), float(count[g])
-                for x in flat[starts[g] + step:starts[g] + sizes[g]].tolist():
-                    if x == x:
+                segment = flat[starts[g] + step:starts[g] + sizes[g]]
+                if np.isfinite(segment).all():  # no missing or infinite value to step over
+                    for x in segment.tolist():
                         y = x - c
                         s = t + y
                         c = (s - t) - y
-                        c, t, k = c if c == c else 0.0, s, k + 1
+                        t = s
+                    k += len(segment)
+                else:
+                    for x in segment.tolist():
+                        if x == x:
+                            y = x - c
+                            s = t + y
+                            c = (s - t) - y
+                            c, t, k = c if c == c else 0.0, s, k + 1
                 total[g], count[g] = t, k
             if len(columns) > 1 and len(sizes):
                 clean = columns[1].to_numpy() & (sizes > 0)
