@@ -13,6 +13,7 @@ import io
 import math
 
 import numpy as np
+import pytest
 import pandas as pd
 import polars as pl
 
@@ -263,3 +264,44 @@ def test_sums_of_columns_of_unknown_type_are_pandas_too(tmp_path):
     (tmp_path / "without").mkdir()
     same_text(script, tmp_path / "with", {"f.csv": "k,v,n,flag\n" + rows})
     same_text(script, tmp_path / "without", {"f.csv": "k,v,n,flag\n" + rows}, with_data=False)
+
+
+def group_sums_helper():
+    """The pandas_group_sums definition that porter writes into a converted script, defined
+    here as the script defines it."""
+    from porter.rules.groupby import GROUP_SUMS_DEFINITION
+
+    space = {"pl": pl}
+    exec(GROUP_SUMS_DEFINITION, space)
+    return space["pandas_group_sums"]
+
+
+@pytest.mark.parametrize("groups", [1, 3, 40, 1500, 20000])
+def test_group_sums_helper_is_pandas_for_few_long_and_many_short_groups(groups):
+    # pandas (the reference) adds a group's floats with a compensated sum in row order when
+    # the rows are not sorted by key; the helper must end on the same digits whether the
+    # groups are few and long or many and short, with missing values and infinities about
+    rng = np.random.default_rng(groups)
+    rows = 60_000
+    value = np.concatenate([
+        np.round(rng.uniform(-900, 900, rows // 3), 2),
+        np.round(rng.uniform(0, 500, rows // 3), 2) * 1.25,
+        rng.normal(0, 1e6, rows - 2 * (rows // 3)),
+    ])
+    rng.shuffle(value)
+    value[rng.random(rows) < 0.03] = np.nan
+    key = rng.integers(0, groups, rows)
+    key[0], key[-1] = groups - 1, 0  # rows out of key order: pandas' compensated sum
+    if groups > 2:  # infinities of both signs in one group, of one sign in another
+        value[np.flatnonzero(key == 1)[:2]] = [np.inf, -np.inf]
+        value[np.flatnonzero(key == 2)[:1]] = np.inf
+    helper = group_sums_helper()
+    for mean in (False, True):
+        grouped = pd.DataFrame({"k": key, "v": value}).groupby("k")["v"]
+        expected = (grouped.mean() if mean else grouped.sum()).to_numpy()
+        got = (pl.DataFrame({"k": key, "v": value}).lazy().group_by("k").agg(pl.col("v"))
+               .with_columns(helper(pl.col("v"), mean=mean)).sort("k").collect()["v"]
+               .fill_null(float("nan")).to_numpy())
+        assert len(got) == len(expected)
+        assert ((got == expected) | (np.isnan(got) & np.isnan(expected))).all(), \
+            f"{(got != expected).sum()} of {len(got)} groups differ (mean={mean})"
