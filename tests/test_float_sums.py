@@ -161,6 +161,22 @@ def test_group_sums_that_cancel_are_pandas_compensated_sums(tmp_path):
     """, tmp_path, {"temps.csv": csv})
 
 
+def test_window_sums_that_cancel_are_pandas_compensated_sums(tmp_path):
+    # a transform's sum is pandas' group sum spread over the rows: the same compensated sum,
+    # which is not the exact sum rounded where temperatures of both signs cancel (checked in
+    # the test above); here the sum sits inside a window and a larger expression
+    csv = temperatures_csv(seed=4)
+    assert not exact_group_sums(csv.replace("temp", "price"), ["station"])
+    same_text("""
+        import pandas as pd
+        d = pd.read_csv("temps.csv", parse_dates=["at"])
+        d["station_total"] = d.groupby("station")["temp"].transform("sum")
+        d["station_mean"] = d.groupby("station")["temp"].transform("mean")
+        d["share"] = d["temp"] / d.groupby("station")["temp"].transform("sum")
+        d.to_csv("with_totals.csv", index=False)
+    """, tmp_path, {"temps.csv": csv})
+
+
 def test_resampled_sums_without_missing_values_are_numpy_reduceat(tmp_path):
     # a resample bins rows sorted by time: pandas 3.1 adds each bin with numpy's reduceat (the
     # first value plus numpy's pairwise sum of the rest) where no value of the column (of the

@@ -102,26 +102,25 @@ def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None,
 '''
 
 # Where the sum is part of a larger expression (a window's over(), a division), it is the
-# exact sum rounded once: pandas' result for nearly every group of positive amounts of a few
-# hundred rows and more; where values of both signs cancel, pandas' keeps an error of its own
-# in a third of the groups (README). Each value is cut into a multiple of 2**-20, which add up
-# without error below 2**33, and the rest, added after.
+# same compensated sum written as one expression: a rolling sum over a window as long as the
+# group, its last value.
 GROUP_SUM_FUNCTION = "pandas_group_sum"
 GROUP_SUM_DEFINITION = '''\
 def pandas_group_sum(x):
-    """x.sum() of floats in a group_by or a window, as pandas' group sum adds them: exactly,
-    rounded once (Polars' own sum can end a unit in the last digit away, 212.40000000000003
-    for 212.4, and round(2) of a sum on a half cent then gives the other cent). Each value
-    is cut into a multiple of 2**-20, which add up without error, and the small rest."""
-    whole = (x * 1048576.0).round() / 1048576.0
-    return whole.sum() + (x - whole).fill_nan(0.0).sum()
+    """x.sum() of floats in a group_by or a window, as pandas' group sum adds them: a
+    compensated (Kahan) sum in row order, missing values skipped, which is what Polars'
+    rolling sum computes over a window longer than the group. Polars' own sum adds in
+    another order and can end a unit in the last digit away (212.40000000000003 for 212.4),
+    and round(2) of a sum on a half cent then gives the other cent."""
+    kept = x.fill_nan(None).drop_nulls()
+    return kept.rolling_sum(2**40, min_samples=1).last().fill_null(0.0)
 '''
 GROUP_MEAN_FUNCTION = "pandas_group_mean"
 GROUP_MEAN_DEFINITION = '''\
 def pandas_group_mean(x):
     """x.mean() of floats in a group_by or a window, as pandas' group mean computes it: the
     sum added as pandas_group_sum adds it, over the count; missing where there is no value."""
-    return (pandas_group_sum(x) / x.count()).fill_nan(None)
+    return (pandas_group_sum(x) / x.fill_nan(None).count()).fill_nan(None)
 '''
 
 
