@@ -50,10 +50,14 @@ def test_true_false_read_with_a_blank_after_its_blanks_are_gone(rows: str, tmp_p
     same_text(source, tmp_path, {"plots.csv": CSV})
 
 
-def test_only_one_row_goes_to_pandas() -> None:
+def test_only_one_row_is_read_and_pandas_names_the_types_when_kept() -> None:
+    # printed: the probe row's types are written as pandas names them, pandas not imported
     text = converted_text('import pandas as pd\ndf = pd.read_csv("plots.csv")\nprint(df.dtypes)\n')
-    assert "df.select(PANDAS_DTYPE_PROBE).collect().to_pandas().dtypes" in text
+    assert "print(pandas_dtypes_text(df.select(PANDAS_DTYPE_PROBE).collect()))" in text
     assert "PANDAS_DTYPE_PROBE = " in text
+    # kept in a name: pandas' own dtypes of the one probe row
+    text = converted_text('import pandas as pd\ndf = pd.read_csv("plots.csv")\nt = df.dtypes\nprint(t)\n')
+    assert "df.select(PANDAS_DTYPE_PROBE).collect().to_pandas().dtypes" in text
 
 
 def test_probe_on_tricky_frames() -> None:

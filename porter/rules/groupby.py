@@ -1183,6 +1183,45 @@ def pandas_text_values(values):
 '''
 
 
+# print(s.unique()) of text without pandas: the text of pandas' string array written out
+TEXT_ARRAY_FUNCTION = "pandas_text_array"
+TEXT_ARRAY_DEFINITION = '''\
+def pandas_text_array(values):
+    """print(s.unique()) of text as pandas prints its string array, without importing pandas:
+    each text quoted, nan for a missing one, lines wrapped at 80 characters (values padded to
+    one width where they fill more than a line), the first and last ten of more than a
+    hundred."""
+    items = ["nan" if v is None else
+             "'" + v.replace("\\t", r"\\t").replace("\\r", r"\\r").replace("\\n", r"\\n") + "'"
+             for v in values.to_list()]
+    if len(items) < 2:
+        body = "[" + ", ".join(items) + "]"
+    else:
+        cut = len(items) > 100
+        head, tail = (items[:10], items[-10:]) if cut else ([], items)
+        if cut or len(", ".join(head)) >= 80 or len(", ".join(tail)) >= 80:
+            wide = max(len(item) for item in head + tail)
+            head, tail = [x.rjust(wide) for x in head], [x.rjust(wide) for x in tail]
+        body, line = "", "\\n "
+
+        def add(word, limit=80):
+            nonlocal body, line
+            if len(line.rstrip()) + len(word.rstrip()) >= limit:
+                body, line = body + line.rstrip(), "\\n "
+            line += word
+
+        for item in head:
+            add(item + ", ")
+        if cut:
+            body, line = body + line.rstrip() + "\\n ...", "\\n "
+        for item in tail[:-1]:
+            add(item + ", ")
+        add(tail[-1], 78)
+        body = "[" + (body + line + "]")[2:]
+    return f"<ArrowStringArray>\\n{body}\\nLength: {len(items)}, dtype: str"
+'''
+
+
 @rule("series.unique")
 def unique(call: PandasCall, ctx: RuleContext) -> Value:
     """s.unique() -> the distinct values in order of first appearance, as an array.
@@ -1224,8 +1263,12 @@ def unique(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.handover = True
         return Scalar(series.method("to_pandas").method("fillna", emit.atom('float("nan")'))
                       .method("to_numpy"), pytype="array")
+    if column.dtype == "str" and not column.element and ctx.printed:
+        # printed: the text of pandas' string array of the distinct texts (nan for a missing
+        # one), written without importing pandas
+        return Scalar(emit.call(TEXT_ARRAY_FUNCTION, series), pytype="str")
     if column.dtype == "str" and not column.element and ctx.shown:
-        # printed: pandas' own array of the distinct texts (its string array, printed as such),
+        # displayed: pandas' own array of the distinct texts (its string array, shown as such),
         # nan for a missing one
         ctx.handover = True
         return Scalar(series.method("to_pandas").method("unique"), pytype="array", items="text")

@@ -499,6 +499,57 @@ DTYPE_PROBE_DEFINITION = f"""\
 """
 
 
+# print(df.dtypes) without pandas: its text written from the probe row's Polars types
+DTYPES_TEXT_FUNCTION = "pandas_dtypes_text"
+DTYPES_TEXT_DEFINITION = '''\
+def pandas_dtypes_text(probe):
+    """print(df.dtypes) as pandas prints it, from the frame's probe row (PANDAS_DTYPE_PROBE),
+    without importing pandas: each column's type as pandas names it (an integer column with a
+    missing value is float64, a True/False one object), names to the left and types to the
+    right, only the first and last five of more than sixty columns."""
+    kinds = []
+    for name, dtype in probe.schema.items():
+        missing = probe[name].has_nulls()
+        if dtype.is_integer() and dtype not in (pl.Int128, pl.UInt128):
+            kind = "float64" if missing else str(dtype).lower()
+        elif dtype in (pl.Float32, pl.Float64):
+            kind = str(dtype).lower()
+        elif dtype == pl.Boolean:
+            kind = "object" if missing else "bool"
+        elif dtype == pl.String:
+            kind = "str"
+        elif dtype == pl.Categorical or isinstance(dtype, pl.Enum):
+            kind = "category"
+        elif isinstance(dtype, pl.Datetime):
+            zone = f", {dtype.time_zone}" if dtype.time_zone else ""
+            kind = f"datetime64[{dtype.time_unit}{zone}]"
+        elif dtype == pl.Date:
+            kind = "datetime64[ms]"
+        elif isinstance(dtype, pl.Duration):
+            kind = f"timedelta64[{dtype.time_unit}]"
+        elif dtype in (pl.Time, pl.Null, pl.Binary) \\
+                or isinstance(dtype, (pl.List, pl.Array, pl.Struct, pl.Decimal)):
+            kind = "object"
+        else:
+            kind = None
+        if kind is None or any(c in name for c in "\\t\\r\\n"):  # pandas names it
+            return str(probe.to_pandas().dtypes)
+        kinds.append((name, kind))
+    if not kinds:
+        return "Series([], dtype: object)"
+    footer = "dtype: object"
+    if len(kinds) > 60:
+        footer = f"Length: {len(kinds)}, dtype: object"
+        kinds = [*kinds[:5], None, *kinds[-5:]]
+    shown = [k for k in kinds if k is not None]
+    left = max(len(name) for name, _ in shown)
+    right = max(len(kind) for _, kind in shown)
+    lines = [" " * left + "   " + "...".center(right + 1) if k is None
+             else k[0].ljust(left) + "    " + k[1].rjust(right) for k in kinds]
+    return "\\n".join([*lines, footer])
+'''
+
+
 @rule("frame.dtypes")
 def dtypes(call: PandasCall, ctx: RuleContext) -> Value:
     """df.dtypes -> pandas' own dtypes of one probe row per column handed over to pandas.
@@ -516,6 +567,9 @@ def dtypes(call: PandasCall, ctx: RuleContext) -> Value:
             raise Unsupported("porter does not know which integer columns pandas holds as its "
                               "nullable Int64 here (named Int64, not int64 or float64)")
     probe = replace(frame, code=frame.code.method("select", emit.atom(DTYPE_PROBE_CONSTANT)))
+    if ctx.printed and frame.int_labels_except is None:
+        # printed: pandas' text written from the probe's Polars types, pandas not imported
+        return Scalar(emit.call(DTYPES_TEXT_FUNCTION, probe.code.method("collect")), pytype="str")
     return PandasValue(to_pandas(probe).attr("dtypes"))
 
 

@@ -128,6 +128,7 @@ class RuleContext:
     infinities_possible: bool = True  # the script divides or writes an infinity
     inside_from_pandas: bool = False  # the call is the argument of pl.from_pandas (porter's output)
     shown: bool = False  # the value is only printed or displayed (print(...), a bare cell value)
+    printed: bool = False  # the value is an argument of print(): only its str() is seen
     function_def: Any = None  # name -> the script's own FunctionDef (defined once), or None
     python_module: Any = None  # the script as Python's ast.Module (row_functions), or None
     runs_function: bool = False  # the rewrite still calls the script's function it was given

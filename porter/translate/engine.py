@@ -74,6 +74,13 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
             return isinstance(call, cst.Call) and module.code_for_node(call.func) in ("print", "display")
         return False
 
+    def printed(node: cst.CSTNode) -> bool:
+        parent = parents.get(node)
+        if isinstance(parent, cst.Arg) and parent.keyword is None and not parent.star:
+            call = parents.get(parent)
+            return isinstance(call, cst.Call) and module.code_for_node(call.func) == "print"
+        return False
+
     lines: list[str] = []
 
     def glued(node: cst.CSTNode) -> bool:
@@ -96,6 +103,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     services.mutated = mutated_names(module)
     services.inside_from_pandas = inside_from_pandas
     services.shown = shown
+    services.printed = printed
     functions = discover_functions(module)
     services.functions = {f.name: f for f in functions}
     services.function_defs = function_definitions(module)

@@ -84,6 +84,7 @@ class Services:
     call_sites: dict[str, list[tuple[Value, ...]]] = field(default_factory=dict)
     inside_from_pandas: Callable[[cst.CSTNode], bool] = lambda node: False
     shown: Callable[[cst.CSTNode], bool] = lambda node: False  # only printed or displayed
+    printed: Callable[[cst.CSTNode], bool] = lambda node: False  # an argument of print()
     # the module's own plain functions, defined once, by name (their bodies can become expressions)
     function_defs: dict[str, cst.FunctionDef] = field(default_factory=dict)
     schema_lookup: Callable[[str, str, dict[str, Any]], dict[str, str] | None] | None = None
@@ -913,6 +914,7 @@ class Evaluator:
                           infinities_possible=self.services.infinities_possible,
                           inside_from_pandas=self.services.inside_from_pandas(node),
                           shown=self.services.shown(node),
+                          printed=self.services.printed(node),
                           function_def=self.services.function_defs.get,
                           python_module=self.services.python_module)
         if key == "frame.setitem" and len(call.args) == 2 and isinstance(call.receiver, Frame) \

@@ -12,11 +12,14 @@ from porter.rules.strings import (
     TITLE_DEFINITION, TITLE_FUNCTION, UPPER_DEFINITION, UPPER_FUNCTION, WHITESPACE_CONSTANT,
     WHITESPACE_DEFINITION,
 )
-from porter.rules.selection import DTYPE_PROBE_CONSTANT, DTYPE_PROBE_DEFINITION
+from porter.rules.selection import (
+    DTYPE_PROBE_CONSTANT, DTYPE_PROBE_DEFINITION, DTYPES_TEXT_DEFINITION, DTYPES_TEXT_FUNCTION,
+)
 from porter.rules.groupby import (
     GROUP_MEAN_DEFINITION, GROUP_MEAN_FUNCTION, GROUP_SUM_DEFINITION, GROUP_SUM_FUNCTION,
     GROUP_SUMS_DEFINITION, GROUP_SUMS_FUNCTION,
-    MEAN_DEFINITION, MEAN_FUNCTION, TEXT_VALUES_DEFINITION, TEXT_VALUES_FUNCTION,
+    MEAN_DEFINITION, MEAN_FUNCTION, TEXT_ARRAY_DEFINITION, TEXT_ARRAY_FUNCTION,
+    TEXT_VALUES_DEFINITION, TEXT_VALUES_FUNCTION,
 )
 from porter.rules.io_options import (
     CATEGORY_COUNTS_DEFINITION, CATEGORY_COUNTS_FUNCTION,
@@ -128,6 +131,8 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (GROUP_MEAN_FUNCTION, GROUP_MEAN_DEFINITION),
                                  (MEAN_FUNCTION, MEAN_DEFINITION),
                                  (TEXT_VALUES_FUNCTION, TEXT_VALUES_DEFINITION),
+                                 (TEXT_ARRAY_FUNCTION, TEXT_ARRAY_DEFINITION),
+                                 (DTYPES_TEXT_FUNCTION, DTYPES_TEXT_DEFINITION),
                                  (VALUES_FUNCTION, VALUES_DEFINITION)):
         if function not in used or _defines(module, function):
             continue
