@@ -361,8 +361,12 @@ def pandas_upper(text):
         )
         .list.join("")
     )
-    return pl.when(text.str.contains(f"{{kept}}|{{iota}}")).then(by_piece).otherwise(
-        text.str.to_uppercase())
+    special = text.str.contains(f"{{kept}}|{{iota}}")
+    return (
+        pl.when(special.any())  # else only Polars' own upper case is computed
+        .then(pl.when(special).then(by_piece).otherwise(text.str.to_uppercase()))
+        .otherwise(text.str.to_uppercase())
+    )
 '''
 
 
@@ -411,9 +415,11 @@ def pandas_title(text):
     three first in a word ("ﬁ" as "Fi") is kept: a letter without case set before it makes
     Polars read it as inside a word, and is taken out after. A letter without case (CJK,
     Hebrew, a modifier letter) ends a word for pandas, not for Polars: a mark that is no
-    letter (U+FFFF) is set after each, and taken out after."""
+    letter (U+FFFF) is set after each, and taken out after. Where the column holds none of
+    these letters, Polars' own title case is pandas', and only that is computed."""
     kept, mark = "[{_escaped(TITLE_KEPT)}]", "{TITLE_MARK}"
-    return (
+    special = r"[ΣßǄ-ǌǱ-ǳİ\\u0307\\uffff{_escaped(TITLE_KEPT)}{TITLE_UNCASED}]"
+    letter_by_letter = (
         text.str.replace_many({{"Σ": "σ", "ß": "ẞ"}})
         .str.replace_all(r"{TITLE_UNCASED}", "$0\\uffff")
         .str.replace_all(kept, mark + "$0")
@@ -421,6 +427,11 @@ def pandas_title(text):
         .str.replace_all("\\uffff", "", literal=True)
         .str.replace_many({{"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\\u0307": "i"}})
         .str.replace_all(mark + f"({{kept}})", "$1")
+    )
+    return (
+        pl.when(text.str.contains(special).any())
+        .then(letter_by_letter)
+        .otherwise(text.str.to_titlecase())
     )
 '''
 
