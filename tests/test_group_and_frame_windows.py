@@ -73,6 +73,24 @@ def test_frame_windows(line, tmp_path):
     assert "TODO" not in result.converted_text
 
 
+
+@pytest.mark.parametrize("line", [
+    'd["r"] = d.rolling("2D", on="at")["fuel"].median()',
+    'd["r"] = d.rolling("3D", on="at", min_periods=2)["crew"].std()',
+])
+def test_frame_time_windows_handed_to_pandas_are_pandas_windows(line, tmp_path):
+    """A time window whose method porter leaves to pandas (median, std: the tied rows' part
+    cannot be combined) is made again from the frame's times and the column, as pandas made
+    it; the column alone has no times, and pandas' Series.rolling refuses on=."""
+    result = same_text(f"""
+        import pandas as pd
+        d = pd.read_csv("s.csv", parse_dates=["at"])
+        {line}
+        print(d["r"].tolist())
+        d.to_csv("o.csv", index=False)
+        """, tmp_path, SHOUTS)
+    assert 'select("at", ' in result.converted_text  # only the times and the column go over
+
 def test_time_window_of_a_sorted_frame(tmp_path):
     """The usual script: sort by time, then count what happened in the 7 days up to each row."""
     files = {"s.csv": "at,no\n2024-03-09 10:00,4\n2024-03-01 08:00,1\n2024-03-03 09:00,2\n"

@@ -915,10 +915,13 @@ class FrameWindow(Accessor):
 @dataclass(frozen=True)
 class TimeWindow(Accessor):
     """`df.rolling("30D", on="t")[col]`: a time window over one column waiting for its method
-    (`series.rolling.sum` ...). Handed over, pandas' Series.rolling refuses on= (it raises
-    rather than compute another window)."""
+    (`series.rolling.sum` ...). Handed over, the window is made again from `grouped` (the
+    frame's times and that column: pandas' Series.rolling refuses on=) and `taken` is the
+    column taken from it."""
 
     time_span: str = field(kw_only=True)
+    grouped: Frame = field(kw_only=True)
+    taken: str = field(kw_only=True)
 
 
 def _time_span(window: str) -> str | None:
@@ -1000,8 +1003,11 @@ def frame_window_column(call: PandasCall, ctx: RuleContext) -> Value:
     _numeric(column, ctx)
     if window.time_span is None:
         return Accessor(column.code, column=column, kind="rolling", options=window.options)
+    on = str(options["on"])
+    pair = replace(frame, code=frame.code.method("select", on, name), columns=(on, name),
+                   dtypes=tuple((c, t) for c, t in frame.dtypes if c in (on, name)))
     return TimeWindow(column.code, column=column, kind="rolling", options=window.options,
-                      time_span=window.time_span)
+                      time_span=window.time_span, grouped=pair, taken=name)
 
 
 @rule("series.expanding")

@@ -1259,7 +1259,7 @@ def _rows_kept(key: str, call: PandasCall) -> int | None:
     method = key.rsplit(".", 1)[-1]
     if isinstance(receiver, Accessor):
         if method in _ROW_CHANGING_STR or call.kwargs.get("expand") is not None \
-                or getattr(receiver, "grouped", None) is not None:  # ordered by group
+                or isinstance(getattr(receiver, "grouped", None), Grouped):  # ordered by group
             return None
         base: Value | None = receiver.column
     elif isinstance(receiver, Column) and method in _ROW_KEEPING_METHODS:

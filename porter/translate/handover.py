@@ -245,7 +245,9 @@ def to_pandas(value: Value) -> Code:
         if value.kind in WINDOW_KINDS:  # the window is made again, with the same arguments
             grouped = getattr(value, "grouped", None)  # a window within groups
             base = to_pandas(grouped if grouped is not None else value.column)
-            return base.method(value.kind, **dict(value.options))
+            window = base.method(value.kind, **dict(value.options))
+            taken = getattr(value, "taken", None)  # a column of a frame's window
+            return window if taken is None else window.index(taken)
         return to_pandas(value.column).attr(value.kind)
     if isinstance(value, Indexer):
         # a Series' s.iloc is the Series' own (not its frame's, nor `s[i]`, which reads labels)
