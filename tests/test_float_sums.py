@@ -282,6 +282,20 @@ def test_sums_of_columns_of_unknown_type_are_pandas_too(tmp_path):
     same_text(script, tmp_path / "without", {"f.csv": "k,v,n,flag\n" + rows}, with_data=False)
 
 
+
+def test_frame_sums_of_columns_of_unknown_type_are_pandas_too(tmp_path):
+    # df.groupby(k).sum() / mean() over every column, none of whose types porter knows
+    # (no --data): each column's sum is still pandas' (ten 0.1 are 1.0), whole numbers and
+    # True/False stay whole
+    rows = "".join(f"a,0.1,{i},True\nb,0.3,2,False\n" for i in range(10))
+    same_text("""
+        import pandas as pd
+        d = pd.read_csv("f.csv")
+        d.groupby("k").sum().to_csv("sums.csv")
+        d.groupby("k").mean().to_csv("means.csv")
+        print(d.groupby("k")[["v"]].sum()["v"].tolist())
+    """, tmp_path, {"f.csv": "k,v,n,flag\n" + rows}, with_data=False)
+
 def group_sums_helper():
     """The pandas_group_sums definition that porter writes into a converted script, defined
     here as the script defines it."""

@@ -146,6 +146,15 @@ def agg_with_sums(code: Code, *exprs: Code, sorted_within: tuple[str, ...] | Non
             inner.append(expr)
             continue
         values, name, mean, floats = split
+        if name == WHOLE_FRAME:  # df.groupby(k).sum() of columns of unknown type
+            if sorted_within is not None or in_key_order is not None:
+                inner.append(expr)  # (the flag is per column; Polars' own sum here)
+                continue
+            inner.append(values)
+            options = {"mean": True} if mean else {}
+            after.append(emit.call(GROUP_SUMS_FUNCTION, emit.atom("pl.selectors.list()"),
+                                   **options, floats=False))
+            continue
         inner.append(values if values.text == emit.col(name).text else values.method("alias", name))
         options: dict[str, object] = {"mean": True} if mean else {}
         if not floats:
@@ -190,7 +199,8 @@ def in_key_order_flag(grouped: Grouped, exprs: list[Code],
     if any(grouped.frame.dtype(k) not in ("str", "int", "datetime", "date", "bool")
            for k in grouped.keys):
         return None
-    if not any(_own_group_sum(e, untyped) is not None for e in exprs):
+    if not any(split is not None and split[1] != WHOLE_FRAME
+               for split in (_own_group_sum(e, untyped) for e in exprs)):
         return None
     keys = list(grouped.keys)
     if len(keys) == 1:
@@ -209,6 +219,9 @@ def _plain_column(node: ast.expr) -> str | None:
     return None
 
 
+WHOLE_FRAME = ""  # _own_group_sum's name for pl.all().sum(): each column, after the agg a list
+
+
 def _own_group_sum(expr: Code, untyped: Collection[str] = ()) -> tuple[Code, str, bool, bool] | None:
     """(the values, the output's name, whether a mean, whether known floats) of
     pandas_group_sum(values) or pandas_group_mean(values), or of pl.col(c).sum() / mean() of
@@ -224,6 +237,9 @@ def _own_group_sum(expr: Code, untyped: Collection[str] = ()) -> tuple[Code, str
         name, node = node.args[0].value, node.func.value
     if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
             and node.func.attr in ("sum", "mean") and not node.args and not node.keywords:
+        if ast.unparse(node.func.value) == "pl.all()" and name is None \
+                and isinstance(untyped, UntypedColumns):  # every column, none of them known
+            return emit.pl("all"), WHOLE_FRAME, node.func.attr == "mean", False
         column = _plain_column(node.func.value)
         if column is None or column not in untyped:
             return None
