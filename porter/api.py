@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import ast
 from pathlib import Path
+from typing import Callable
 import re
 import sys
 import traceback
@@ -12,6 +13,7 @@ import libcst as cst
 
 from porter.analysis.consumers import plotting_arguments
 from porter.analysis.frame_lists import frame_lists
+from porter.analysis.returned_frames import return_changed_frames
 from porter.mapping import MappingTable, load_table
 from porter.emit.fstrings import fits
 from porter.model import ConversionError, FileResult, InternalError, Options, Site, SiteDraft
@@ -57,6 +59,9 @@ def convert_source(text: str, *, path: str | None = None, options: Options | Non
     """Convert the text of one pandas script; raises ConversionError for bad input."""
     options = options or Options()
     module = parse(text, path)
+    # helpers that change their frame in place return it, and their callers rebind it
+    returned = return_changed_frames(module)
+    module = returned.module
     schema_lookup = None
     if options.data_dir is not None:
         from porter.analysis.schema import SchemaReader
@@ -81,10 +86,11 @@ def convert_source(text: str, *, path: str | None = None, options: Options | Non
         translation = translate_module(module, services)
         converted = translation.module.code
     except Exception as exc:  # a bug in porter: this file fails, with where and why
-        raise InternalError(f"{type(exc).__name__}: {exc}", path, services.statement_lines[0] or None,
+        at = services.statement_lines[0]
+        raise InternalError(f"{type(exc).__name__}: {exc}", path, returned.original_line(at) if at else None,
                             traceback.format_exc()) from None
     check_parses(converted, text, path)
-    sites = tuple(_site(d) for d in translation.sites)
+    sites = tuple(_site(d, returned.original_line) for d in translation.sites)
     return FileResult(
         source=path or "<stdin>",
         output=output,
@@ -161,9 +167,10 @@ def read_text(path: Path) -> str:
         raise ConversionError(exc.strerror or str(exc), str(path)) from None
 
 
-def _site(draft: SiteDraft) -> Site:
+def _site(draft: SiteDraft, line_of: Callable[[int], int] = lambda line: line) -> Site:
+    """The finding as reported, its lines in the original file's numbering (`line_of`)."""
     message = draft.message
     if draft.suggestion:
         message += f"; suggested: {' '.join(draft.suggestion.split())}"
-    return Site(draft.line, draft.end_line, draft.key, draft.rule, draft.status,
+    return Site(line_of(draft.line), line_of(draft.end_line), draft.key, draft.rule, draft.status,
                 draft.confidence, message)
