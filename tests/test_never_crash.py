@@ -215,7 +215,7 @@ def test_every_golden_and_corpus_conversion_parses_on_311(path):
     assert not any("internal error" in s.message for s in result.sites)
 
 
-# -- statement forms (round 12): match, annotated and chained assignments, unpacking ----------
+# -- statement forms: match, annotated and chained assignments, unpacking ----------
 
 @pytest.mark.parametrize("body", [
     # every kind of case pattern, guards reading frame values, no catch-all

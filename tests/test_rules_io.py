@@ -315,7 +315,7 @@ def test_written_file_matches_pandas(write: str, output: str, data: Path,
 def test_to_parquet_of_groupby_keys_is_written_by_pandas() -> None:
     # pandas marks the keys as the index in the file; its read_parquet restores them as the
     # row labels, where Polars' file would hold plain columns: pandas writes the file
-    # (tests/test_fix13_io.py compares the files)
+    # (tests/test_files_read_and_written.py compares the files)
     result = convert("import numpy as np\nimport pandas as pd\n" + FRAME + "\n"
                      'df.groupby("name")[["kg"]].sum().to_parquet("out.parquet")\n')
     site = next(s for s in result.sites if s.key == "frame.to_parquet")

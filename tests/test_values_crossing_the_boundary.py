@@ -1,4 +1,4 @@
-"""Values crossing between pandas and Polars, and files written (round 12, F7).
+"""Values crossing between pandas and Polars, and files written.
 
 pandas is the reference implementation: each check runs the script with pandas and its
 conversion with Polars, each in a folder of its own, and compares what they print and the text

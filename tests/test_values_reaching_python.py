@@ -1,4 +1,4 @@
-"""Values that reach Python (round 13): tolist(), unique(), values, iloc and nunique() give
+"""Values that reach Python: tolist(), unique(), values, iloc and nunique() give
 what pandas gives: nan for a missing text or True/False, pandas' Timestamps and NaT, Python
 ints, a Categorical's labels.
 

@@ -1,4 +1,4 @@
-"""Reading and writing files (round 13): Series.to_csv's row labels, read_csv options pandas
+"""Reading and writing files: Series.to_csv's row labels, read_csv options pandas
 honours, and files the two libraries write differently.
 
 pandas is the reference: each check runs the script with pandas and its conversion with Polars

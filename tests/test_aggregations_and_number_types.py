@@ -1,4 +1,4 @@
-"""Aggregations, windows and number types (round 13): numpy functions given to agg, int
+"""Aggregations, windows and number types: numpy functions given to agg, int
 columns pandas keeps int, the midpoint of an even median.
 
 pandas is the reference: each check runs the script with pandas and its conversion with Polars

@@ -1,4 +1,4 @@
-"""Round 12, fixer F4: statement forms porter left unconverted (`match`, `a = b = ...`,
+"""Statement forms porter left unconverted (`match`, `a = b = ...`,
 annotated assignments), and files the script changes after it reads them.
 
 Every check runs the script with pandas (the reference) and its conversion with Polars, each

@@ -1,4 +1,4 @@
-"""Round 13, fixer C: statements and element functions that crashed or changed a column's type.
+"""Statements and element functions that crashed or changed a column's type.
 
 Every check runs the script with pandas (the reference) and its conversion with Polars, each
 in a folder of its own, and compares what they print and the files they write (same_text), or
