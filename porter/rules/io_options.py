@@ -133,10 +133,17 @@ FLOAT_REPR = ((r"e-(\d)$", "e-0${1}"),
 CSV_FLOATS_DEFINITION = (
     "# Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars\n"
     "# writes 0.00005 and 1.5e-7; NaN as an empty field.\n"
+    "# Only a column holding a value below 0.0001 (other than 0) needs the replacements.\n"
     "PANDAS_CSV_FLOATS = (\n"
-    "    pl.selectors.float().fill_nan(None).cast(pl.String)\n"
-    + "".join(f'    .str.replace(r"{pattern}", "{text}")\n' for pattern, text in FLOAT_REPR)
-    + ")\n")
+    "    pl.when(\n"
+    "        (pl.selectors.float().abs() < 1e-4).and_(pl.selectors.float() != 0).any()\n"
+    "    )\n"
+    "    .then(\n"
+    "        pl.selectors.float().fill_nan(None).cast(pl.String)\n"
+    + "".join(f'        .str.replace(r"{pattern}", "{text}")\n' for pattern, text in FLOAT_REPR)
+    + "    )\n"
+    "    .otherwise(pl.selectors.float().fill_nan(None).cast(pl.String))\n"
+    ")\n")
 
 
 def float_text(number: Code) -> Code:
