@@ -25,7 +25,9 @@ from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
     mark_float_ints, nullable_mark, set_nullable_ints, with_column_updates,
 )
-from porter.rules.strings import LIST_STR, expanded_columns, list_repr
+from porter.rules.datetimes import NAT_DURATION_MARK, NAT_FLOAT_MARK
+from porter.rules.strings import LIST_STR, MISSING_MAKES_FLOAT, expanded_columns, list_repr
+from porter.rules.windows import MISSING_KEY_FLOAT
 from porter.translate.handover import (makes_periods, makes_python_ints, orders_categories,
                                        pandas_text, text_categories)
 from porter.translate.values import (
@@ -568,7 +570,7 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
         if isinstance(value, Column) and value.float_int is not None:
             # still float64 in pandas when a value went missing (lost_float_ints)
             result = mark_float_ints(result, [key.const], value.float_int)
-        return result
+        return typed_at_run_time(result, {key.const: value}) or result
     if isinstance(key, Opaque) and isinstance(key.const, list) and key.const \
             and all(isinstance(k, str) for k in key.const) \
             and isinstance(value, Opaque) and value.is_const \
@@ -583,6 +585,38 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
         return with_column_updates(frame, new, {}) if frame.columns is None else \
             derive(frame, new, same_rows=True, columns=None)
     raise Unsupported("assigning to several columns or to a computed key")
+
+
+# integer results pandas makes float64 when a value is missing where they are computed (a date
+# part of NaT, the length of a missing text, a count in a group whose key is missing) and
+# keeps float64 after those rows are dropped
+_TYPED_AT_RUN_TIME = frozenset({NAT_FLOAT_MARK, NAT_DURATION_MARK, MISSING_MAKES_FLOAT,
+                                MISSING_KEY_FLOAT})
+
+
+def typed_at_run_time(frame: Frame, values: dict[str, Value]) -> Frame | None:
+    """`frame` (just given the columns `values`) with each column whose pandas type depends on
+    missing values (a date part, a text length) given that type once it is computed: pandas'
+    dt.month is float64 when a date is missing then, int32 otherwise, and stays so when the
+    rows with the missing date are dropped later (written 3.0), which a lazy plan cannot pick
+    by value: the frame is computed there and those columns holding a missing value are made
+    Float64, as the frame a merge makes (rules/merge.py). Their dtype stays "int", porter's
+    name for an integer column pandas makes float64 by its missing values (Frame.float_ints):
+    what reads them as int (to_csv, astype(str), a reduction) gives the text of the Float64
+    column for it, and a step that wants a number of another kind (pd.to_datetime of epoch
+    numbers) stays a TODO as it was. None when no column needs it."""
+    names = tuple(name for name, value in values.items()
+                  if isinstance(value, Column) and value.float_int in _TYPED_AT_RUN_TIME
+                  and not value.nullable_int and value.dtype in ("int", None)
+                  and value.frame.rows == frame.rows)
+    if not names:
+        return None
+    code = frame.code.method("collect").method("pipe", emit.atom(
+        f"lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in {emit.render(names)} "
+        "if t[c].has_nulls()])")).method("lazy")
+    # the mark has done its work: pandas' type is the column's own from here on
+    float_ints = tuple(m for m in frame.float_ints if m[0] not in names)
+    return replace(frame, code=code, float_ints=float_ints)
 
 
 def _set_several(frame: Frame, args: tuple[Value, ...], ctx: RuleContext) -> Frame:
@@ -603,7 +637,7 @@ def _set_several(frame: Frame, args: tuple[Value, ...], ctx: RuleContext) -> Fra
     for name, value in values.items():
         if isinstance(value, Column) and value.float_int is not None:
             result = mark_float_ints(result, [name], value.float_int)
-    return result
+    return typed_at_run_time(result, values) or result
 
 
 @rule("frame.join")
