@@ -25,7 +25,9 @@ from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
     mark_float_ints, nullable_mark, set_nullable_ints, with_column_updates,
 )
-from porter.rules.strings import LIST_STR, expanded_columns, list_repr
+from porter.rules.datetimes import NAT_DURATION_MARK, NAT_FLOAT_MARK
+from porter.rules.strings import LIST_STR, MISSING_MAKES_FLOAT, expanded_columns, list_repr
+from porter.rules.windows import MISSING_KEY_FLOAT
 from porter.translate.handover import (makes_periods, makes_python_ints, orders_categories,
                                        pandas_text, text_categories)
 from porter.translate.values import (
@@ -568,7 +570,7 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
         if isinstance(value, Column) and value.float_int is not None:
             # still float64 in pandas when a value went missing (lost_float_ints)
             result = mark_float_ints(result, [key.const], value.float_int)
-        return result
+        return typed_at_run_time(result, {key.const: value}) or result
     if isinstance(key, Opaque) and isinstance(key.const, list) and key.const \
             and all(isinstance(k, str) for k in key.const) \
             and isinstance(value, Opaque) and value.is_const \
@@ -583,6 +585,38 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
         return with_column_updates(frame, new, {}) if frame.columns is None else \
             derive(frame, new, same_rows=True, columns=None)
     raise Unsupported("assigning to several columns or to a computed key")
+
+
+# integer results pandas makes float64 when a value is missing where they are computed (a date
+# part of NaT, the length of a missing text, a count in a group whose key is missing) and
+# keeps float64 after those rows are dropped
+_TYPED_AT_RUN_TIME = frozenset({NAT_FLOAT_MARK, NAT_DURATION_MARK, MISSING_MAKES_FLOAT,
+                                MISSING_KEY_FLOAT})
+
+
+def typed_at_run_time(frame: Frame, values: dict[str, Value]) -> Frame | None:
+    """`frame` (just given the columns `values`) with each column whose pandas type depends on
+    missing values (a date part, a text length) given that type once it is computed: pandas'
+    dt.month is float64 when a date is missing then, int32 otherwise, and stays so when the
+    rows with the missing date are dropped later (written 3.0), which a lazy plan cannot pick
+    by value: the frame is computed there and those columns holding a missing value are made
+    Float64, as the frame a merge makes (rules/merge.py). Their dtype stays "int", porter's
+    name for an integer column pandas makes float64 by its missing values (Frame.float_ints):
+    what reads them as int (to_csv, astype(str), a reduction) gives the text of the Float64
+    column for it, and a step that wants a number of another kind (pd.to_datetime of epoch
+    numbers) stays a TODO as it was. None when no column needs it."""
+    names = tuple(name for name, value in values.items()
+                  if isinstance(value, Column) and value.float_int in _TYPED_AT_RUN_TIME
+                  and not value.nullable_int and value.dtype in ("int", None)
+                  and value.frame.rows == frame.rows)
+    if not names:
+        return None
+    code = frame.code.method("collect").method("pipe", emit.atom(
+        f"lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in {emit.render(names)} "
+        "if t[c].has_nulls()])")).method("lazy")
+    # the mark has done its work: pandas' type is the column's own from here on
+    float_ints = tuple(m for m in frame.float_ints if m[0] not in names)
+    return replace(frame, code=code, float_ints=float_ints)
 
 
 def _set_several(frame: Frame, args: tuple[Value, ...], ctx: RuleContext) -> Frame:
@@ -603,7 +637,7 @@ def _set_several(frame: Frame, args: tuple[Value, ...], ctx: RuleContext) -> Fra
     for name, value in values.items():
         if isinstance(value, Column) and value.float_int is not None:
             result = mark_float_ints(result, [name], value.float_int)
-    return result
+    return typed_at_run_time(result, values) or result
 
 
 @rule("frame.join")
@@ -865,13 +899,18 @@ def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
     column is missing outside the mask, as pandas makes it; a new column given a whole number
     is Float64, as pandas makes it float64 whatever the mask (all True too); where the columns
     are not known, the column's values where the frame has it and missing values where it is
-    new (a whole number then makes a new column Int64: 0.9).
+    new (a whole number then makes a new column Int64: 0.9). Several columns listed
+    (df.loc[mask, ["a", "b"]] = 0, or one value each: = [0, 1.5]): one with_columns, each
+    column typed as pandas types it (_loc_several).
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
     if len(call.args) != 3:
         raise Unsupported("loc assignment needs rows and one column")
     rows, column, value = call.args
+    if isinstance(column, Opaque) and isinstance(column.const, list) and column.const \
+            and all(isinstance(c, str) for c in column.const):
+        return _loc_several(frame, rows, column.const, value, ctx)
     if not (isinstance(column, Opaque) and isinstance(column.const, str)):
         raise Unsupported("loc assignment to several or computed columns")
     name = column.const
@@ -929,6 +968,102 @@ def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
     kept = dtype == frame.dtype(name) or not exists and dtype in ("float", "bool", "str")
     return set_nullable_ints(with_columns(frame, [(name, new, dtype if kept else None)]),
                              {name: mark})
+
+
+_SCALARS = (bool, int, float, str, type(None))
+
+
+def _loc_several(frame: Frame, rows: Value, names: list[str], value: Value,
+                 ctx: RuleContext) -> Frame:
+    """df.loc[mask, ["a", "b"]] = v (or = [va, vb], one value per column) -> one with_columns
+    of pl.when(mask).then(v).otherwise(pl.col(c)) per column.
+
+    pandas 3.1 writes the value into each column's own type, whatever rows the mask chose (none
+    too): 0 or 2.0 into an int64 column keeps it int64 (written 2), NaN or None makes it
+    float64 (even where no row is chosen), 0.5 or True into it raises; an int64 column given a
+    float, or a float64 one given a whole number, is float; text goes into text only and
+    True/False into True/False only (anything else raises, as does a number into a date). A new
+    column is missing outside the mask: float64 for a number, text for text. A missing value in
+    the mask (a comparison with NaN, pandas' nullable boolean) chooses no row, as pl.when does.
+    """
+    if frame.columns is None:
+        raise Unsupported("loc assignment to several columns of a frame whose columns porter "
+                          "does not know")
+    if len(set(names)) != len(names):
+        raise Unsupported("loc assignment naming a column twice")
+    if not isinstance(rows, Column):
+        raise Unsupported("loc assignment to several columns: rows chosen by index label or "
+                          "a slice")
+    if not isinstance(value, Opaque) or not value.is_const:
+        raise Unsupported("loc assignment to several columns of a value computed when the "
+                          "script runs (pandas aligns a Series or frame on its labels)")
+    if isinstance(value.const, (list, tuple)):
+        if len(value.const) != len(names):
+            raise Unsupported("a list of values whose length is not the number of columns")
+        values = list(value.const)
+    else:
+        values = [value.const] * len(names)
+    if not all(isinstance(v, _SCALARS) for v in values):
+        raise Unsupported("loc assignment of values other than numbers, text, True/False or "
+                          "None to several columns")
+    mask = ctx.expr(rows, frame)
+    items: list[tuple[str, Code, str | None]] = []
+    marks: dict[str, str | None] = {}
+    for name, given in zip(names, values):
+        code, dtype = _loc_typed(frame, name, given)
+        exists = name in frame.columns
+        items.append((name, emit.when(mask, code, emit.col(name) if exists else None), dtype))
+        marks[name] = _loc_mark(frame, name, Opaque(emit.lit(given), const=given), dtype, ctx)
+    return set_nullable_ints(with_columns(frame, items), marks)
+
+
+def _loc_typed(frame: Frame, name: str, given: object) -> tuple[Code, str]:
+    """The value `given` as pandas writes it into column `name` of `frame` under a mask (see
+    _loc_several): its expression and the column's type after."""
+    assert frame.columns is not None
+    kind = frame.dtype(name) if name in frame.columns else "new"
+    missing = given is None or isinstance(given, float) and given != given
+    number = isinstance(given, (int, float)) and not isinstance(given, bool)
+    float_null = emit.pl("lit", None, dtype=emit.atom("pl.Float64"))
+    refused = Unsupported(f"pandas refuses {given!r} in its {kind} column {name!r} (the "
+                          "statement stays pandas)")
+    if kind == "new":
+        if missing:
+            return float_null, "float"
+        if number:
+            return emit.pl("lit", float(given)), "float"
+        if isinstance(given, str):
+            return emit.pl("lit", given), "str"
+        raise Unsupported(f"True/False into the new column {name!r}: pandas makes it an object "
+                          "column with NaN outside the mask")
+    if kind == "int":
+        if missing:
+            return float_null, "float"  # float64 in pandas even when the mask chose no row
+        if isinstance(given, int) and not isinstance(given, bool) and -2**63 <= given < 2**63:
+            return int64_lit(given), "int"
+        if isinstance(given, float) and math.isfinite(given) and given.is_integer() \
+                and -2**63 <= given < 2**63:
+            return int64_lit(int(given)), "int"  # pandas keeps int64: 2.0 is written 2
+        raise refused
+    if kind == "float":
+        if missing:
+            return float_null, "float"
+        if number:
+            return emit.pl("lit", float(given)), "float"
+        raise refused
+    if kind == "str":
+        if missing:
+            return emit.pl("lit", None, dtype=emit.atom("pl.String")), "str"
+        if isinstance(given, str):
+            return emit.pl("lit", given), "str"
+        raise refused
+    if kind == "bool":
+        if isinstance(given, bool):
+            return emit.pl("lit", given), "bool"
+        raise refused
+    raise Unsupported(f"loc assignment into the column {name!r}, "
+                      + (f"a {kind} column" if kind else "whose type porter does not know")
+                      + ": pandas' result type depends on it")
 
 
 def _loc_mark(frame: Frame, name: str, value: Value, dtype: str | None,

@@ -53,6 +53,10 @@ NAT_MAKES_FLOAT = ("a missing date (NaT) makes pandas' result float64: its min, 
                    "a single value print 2024.0 where these print 2024, and a group key or group "
                    "aggregate of it is written 2024.0 (to_csv, astype(str) and tolist() of the "
                    "column itself follow the missing values, as pandas does)")
+# Column.float_int of a date part: float64 in pandas where a date is missing. Assigned as a
+# column (rules/assign.py: typed_at_run_time), it is given pandas' type once it is computed
+NAT_FLOAT_MARK = "a date is missing (NaT)"
+NAT_DURATION_MARK = "a duration is missing (NaT)"
 
 
 def _as_int32(code: Code) -> Code:
@@ -74,14 +78,17 @@ def component(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: the same numbers (January 1 is day 1 in both); missing stays missing; Int32 as
     pandas' int32 (Polars' Int8 and Int16 parts would wrap around in arithmetic).
     Caveats: pandas' int32 becomes float64 when a date is missing (NaT); Polars keeps Int32
-    with nulls: files written, astype(str) and tolist() follow the nulls as pandas does, but a
-    min, max, sum or single value prints 2024 where pandas prints 2024.0, and so does a group
-    key or aggregate of it (0.95).
+    with nulls. Set as a column, the result is given pandas' type where it is computed
+    (Column.float_int NAT_FLOAT_MARK, rules/assign.py typed_at_run_time); used otherwise,
+    files written, astype(str) and tolist() follow the nulls as pandas does, but a min, max,
+    sum or single value prints 2024 where pandas prints 2024.0, and so does a group key or
+    aggregate of it (0.95).
     """
     column = accessor_column(call)
     ctx.lower(NAT_MAKES_FLOAT, 0.95)
     code = _dt(column).method(_COMPONENTS[call.name])
-    return _result(column, code if call.name == "year" else _as_int32(code), "int")
+    result = _result(column, code if call.name == "year" else _as_int32(code), "int")
+    return replace(result, float_int=NAT_FLOAT_MARK)
 
 
 @rule("series.dt.weekday", "series.dt.dayofweek", "series.dt.day_of_week")
@@ -94,7 +101,8 @@ def weekday(call: PandasCall, ctx: RuleContext) -> Value:
     """
     column = accessor_column(call)
     ctx.lower(NAT_MAKES_FLOAT, 0.95)
-    return _result(column, emit.binop(_as_int32(_dt(column).method("weekday")), "-", 1), "int")
+    result = _result(column, emit.binop(_as_int32(_dt(column).method("weekday")), "-", 1), "int")
+    return replace(result, float_int=NAT_FLOAT_MARK)
 
 
 @rule("series.dt.date")
@@ -358,7 +366,8 @@ def days_in_month(call: PandasCall, ctx: RuleContext) -> Value:
     column = accessor_column(call)
     if column.dtype not in (None, "datetime"):
         raise ctx.todo(f"a {column.dtype} column")
-    return _result(column, _as_int32(_dt(column).method("days_in_month")), "int")
+    result = _result(column, _as_int32(_dt(column).method("days_in_month")), "int")
+    return replace(result, float_int=NAT_FLOAT_MARK)
 
 
 @rule("pd.Timestamp")
@@ -1196,7 +1205,7 @@ def days(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.lower(NAT_MAKES_FLOAT.replace("missing date", "missing duration").replace(
         "2024", "3"), 0.95)
     code = emit.binop(_dt(column).method("total_microseconds"), "//", emit.atom("86_400_000_000"))
-    return _result(column, code, "int")
+    return replace(_result(column, code, "int"), float_int=NAT_DURATION_MARK)
 
 
 @rule("series.dt.total_seconds")
