@@ -139,3 +139,26 @@ def label(kind):
 
 trips["tag"] = trips["kind"].map(label)
 ''')
+
+
+def test_numpy_ceil_and_floor_of_a_value_and_of_a_column(tmp_path: Path) -> None:
+    check(tmp_path, """\
+trips["mins"] = trips["fare"].apply(lambda s: int(np.ceil(s / 60)) if s == s else 0)
+trips["late_up"] = trips["late"].map(lambda s: np.ceil(s - 0.5))
+trips["party_up"] = np.ceil(trips["party"] / 4)
+trips["party_down"] = np.floor(trips["party"])
+trips["fare_down"] = np.floor(trips["fare"] - 10)
+""")
+
+
+def test_numpy_floor_of_an_int_column_with_a_missing_value(tmp_path: Path) -> None:
+    # "late" read as ints with a blank: pandas holds it as float64 (written 3.0)
+    script = """\
+import numpy as np
+import pandas as pd
+t = pd.read_csv("t.csv")
+t["down"] = np.floor(t["late"])
+t["up"] = np.ceil(t["n"])
+t.to_csv("out.csv", index=False)
+"""
+    same_text(script, tmp_path, {"t.csv": "n,late\n1,3\n2,\n-3,7\n"})

@@ -1333,6 +1333,24 @@ def np_math(call: PandasCall, ctx: RuleContext) -> Value:
     return _as_element(derived_column(column, code, dtype="float"), column)
 
 
+@rule("np.ceil", "np.floor")
+def np_ceil_floor(call: PandasCall, ctx: RuleContext) -> Value:
+    """np.ceil(s) / np.floor(s) -> .ceil() / .floor(), of one value inside a lambda too.
+
+    Handles: numpy (2.x) keeps an integer column's ints (3, written so), as Polars does; an
+    integer column pandas holds as floats (a missing value) gives floats; -0.5 rounds up to
+    -0.0 in both; NaN stays NaN (missing).
+    Caveats: text, date and True/False columns are TODOs.
+    """
+    column = _numpy_column(call, ctx, "x")
+    if column.dtype not in ("int", "float"):
+        raise Unsupported(f"np.{call.name} of a {column.dtype or 'value of unknown type'}")
+    code, dtype = column.code, column.dtype
+    if column.dtype == "int" and column.float_int and not column.python_int:
+        code, dtype = code.method("cast", emit.atom("pl.Float64")), "float"
+    return _as_element(derived_column(column, code.method(call.name), dtype=dtype), column)
+
+
 # -- np.select --------------------------------------------------------------------------------
 
 def _listed(value: Value, what: str) -> list[Value]:
