@@ -162,3 +162,10 @@ t["up"] = np.ceil(t["n"])
 t.to_csv("out.csv", index=False)
 """
     same_text(script, tmp_path, {"t.csv": "n,late\n1,3\n2,\n-3,7\n"})
+
+
+def test_a_row_function_with_isinstance_and_an_f_string(tmp_path: Path) -> None:
+    check(tmp_path, """\
+trips["label"] = trips.apply(lambda r: f"{r['kind']} ({r['party']})" if isinstance(r["kind"], str) else "?", axis=1)
+trips["paid"] = trips.apply(lambda r: r["voucher"] if isinstance(r["voucher"], float) and r["voucher"] > 0 else r["fare"], axis=1)
+""")

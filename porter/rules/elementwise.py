@@ -1177,17 +1177,6 @@ class _RowFields(cst.CSTTransformer):
         self.fields[name] = column
         return cst.Name(name)
 
-    def leave_Call(self, original: cst.Call, updated: cst.Call) -> cst.BaseExpression:
-        if not (isinstance(updated.func, cst.Name) and updated.func.value == "isinstance"
-                and len(updated.args) == 2
-                and all(a.keyword is None and not a.star for a in updated.args)):
-            return updated
-        value = self.ctx.evaluate(updated.args[0].value, self.bindings)
-        if not isinstance(value, Column) or not value.element:
-            return updated
-        result = _isinstance(value, updated.args[1].value)
-        return self._bind(result, value).with_changes(lpar=updated.lpar, rpar=updated.rpar)
-
     def leave_Subscript(self, original: cst.Subscript, updated: cst.Subscript) -> cst.BaseExpression:
         if isinstance(original.value, cst.Name) and original.value.value == self.param \
                 and len(original.slice) == 1 and isinstance(original.slice[0].slice, cst.Index) \
