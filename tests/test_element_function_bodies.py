@@ -169,3 +169,16 @@ def test_a_row_function_with_isinstance_and_an_f_string(tmp_path: Path) -> None:
 trips["label"] = trips.apply(lambda r: f"{r['kind']} ({r['party']})" if isinstance(r["kind"], str) else "?", axis=1)
 trips["paid"] = trips.apply(lambda r: r["voucher"] if isinstance(r["voucher"], float) and r["voucher"] > 0 else r["fare"], axis=1)
 """)
+
+
+def test_round_of_max_of_arithmetic_is_python_round(tmp_path: Path) -> None:
+    # max() of arithmetic whose type porter does not keep: round(.., 2) stays Python's round
+    # of a float (the exact binary value), not Polars' round of an int column
+    text = same_text('''\
+import numpy as np
+import pandas as pd
+t = pd.read_csv("t.csv")
+t["net"] = t.apply(lambda r: round(max(r["price"] * 0.9 - (r["v"] if r["v"] > 0 else 0), 0), 2), axis=1)
+t.to_csv("out.csv", index=False)
+''', tmp_path, {"t.csv": "price,v,k\n2.975,,a\n10,2,b\n1.005,5,c\n,1,d\n"}).converted_text
+    assert "round(v, 2)" in text

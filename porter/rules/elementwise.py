@@ -654,9 +654,11 @@ def element_extreme(call: PandasCall, ctx: RuleContext) -> Value:
     if constant and (not isinstance(other.const, (int, float)) or isinstance(other.const, bool)
                      or other.const != other.const):
         raise Unsupported(f"{call.name}() of a value and something other than a number")
-    kinds = {element.dtype, value_dtype(other)} - ({None} if constant else set())
-    if not kinds <= {"int", "float"}:
+    second_kind = ("int" if isinstance(other.const, int) else "float") if constant \
+        else value_dtype(other)
+    if element.dtype not in ("int", "float", None) or second_kind not in ("int", "float"):
         raise Unsupported(f"{call.name}() of values other than numbers")
+    kinds = {element.dtype, second_kind}
     if element.dtype is None:
         ctx.lower(f"{call.name}() of a value whose type porter does not know (arithmetic of "
                   f"ints and floats): where it is not a number pandas raises", 0.95)
@@ -669,8 +671,8 @@ def element_extreme(call: PandasCall, ctx: RuleContext) -> Value:
     op = ">" if call.name == "max" else "<"
     code = emit.when(emit.binop(second, op, element.code), second).method("otherwise", element.code)
     # ints and floats together: pandas makes the column of the values returned float64
-    return _value(element, code, dtype="float" if "float" in kinds else
-                  "int" if kinds == {"int"} else None)
+    return _value(element, code, dtype=None if None in kinds else
+                  "float" if "float" in kinds else "int")
 
 
 @rule("element.str", "element.int", "element.float")
