@@ -25,6 +25,7 @@ from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.io_options import ROW_FUNCTION, float_text
 from porter.rules.ops import abs_, compare, int64_branches, int64_lit, may_hold_nan, round_
+from porter.rules.strings import LIST_STR
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_of, derived_column, value_dtype,
 )
@@ -45,7 +46,7 @@ def element_lambda(node: cst.Lambda, column: Column, ctx: RuleContext) -> Column
     if len(params) != 1 or node.params.star_arg not in (None, cst.MaybeSentinel.DEFAULT):
         raise Unsupported("a lambda with more than one parameter")
     element = replace(column, element=True, sites=())
-    result = _checked(ctx.evaluate(node.body, {params[0].name.value: element}), ctx)
+    result = _checked(evaluate_element(node.body, {params[0].name.value: element}, ctx), ctx)
     if isinstance(result, Opaque) and result.is_const:
         # a whole number is int64 in pandas (Polars' pl.lit would make it Int32)
         whole = isinstance(result.const, int) and not isinstance(result.const, bool)
@@ -55,6 +56,160 @@ def element_lambda(node: cst.Lambda, column: Column, ctx: RuleContext) -> Column
         raise Unsupported("the lambda body has no expression form porter knows")
     code = result.code.method("fill_null", False) if result.null_is_false else result.code
     return replace(result, code=code, element=False, name=column.name, null_is_false=False, sites=())
+
+
+def evaluate_element(node: cst.BaseExpression, bindings: dict[str, Value],
+                     ctx: RuleContext) -> Value:
+    """The body of a function of one value (or of a row's values) evaluated with `bindings`:
+    `a in b` and `x[i]` / `x[a:b]` of such a value, which the evaluator does not read on
+    values, are computed here first (innermost first) and stand in the body as names bound
+    to their expressions."""
+    forms = _ElementForms(dict(bindings), ctx)
+    visited = node.visit(forms)
+    assert isinstance(visited, cst.BaseExpression)
+    return ctx.evaluate(visited, forms.bindings)
+
+
+def _is_element(value: Value) -> bool:
+    return isinstance(value, Column) and value.element
+
+
+class _ElementForms(cst.CSTTransformer):
+    def __init__(self, bindings: dict[str, Value], ctx: RuleContext) -> None:
+        super().__init__()
+        self.bindings = bindings
+        self.ctx = ctx
+
+    def _bind(self, value: Value, *operands: Value) -> cst.Name:
+        name = f"_element_form_{len(self.bindings)}"
+        self.bindings[name] = value.with_sites(*(s for v in operands for s in v.sites))
+        return cst.Name(name)
+
+    def visit_Lambda(self, node: cst.Lambda) -> bool:
+        return False  # a lambda inside: its parameter is no value of this one
+
+    def leave_Comparison(self, original: cst.Comparison,
+                         updated: cst.Comparison) -> cst.BaseExpression:
+        if len(updated.comparisons) != 1 or not isinstance(
+                updated.comparisons[0].operator, (cst.In, cst.NotIn)):
+            return updated
+        target = updated.comparisons[0]
+        left = self.ctx.evaluate(updated.left, self.bindings)
+        right = self.ctx.evaluate(target.comparator, self.bindings)
+        if not (_is_element(left) or _is_element(right)):
+            return updated
+        value = _membership(left, right, isinstance(target.operator, cst.NotIn))
+        return self._bind(value, left, right).with_changes(lpar=updated.lpar, rpar=updated.rpar)
+
+    def leave_Call(self, original: cst.Call, updated: cst.Call) -> cst.BaseExpression:
+        if not (isinstance(updated.func, cst.Name) and updated.func.value == "isinstance"
+                and len(updated.args) == 2
+                and all(a.keyword is None and not a.star for a in updated.args)):
+            return updated
+        value = self.ctx.evaluate(updated.args[0].value, self.bindings)
+        if not isinstance(value, Column) or not value.element:
+            return updated
+        result = _isinstance(value, updated.args[1].value)
+        return self._bind(result, value).with_changes(lpar=updated.lpar, rpar=updated.rpar)
+
+    def leave_Subscript(self, original: cst.Subscript,
+                        updated: cst.Subscript) -> cst.BaseExpression:
+        if len(updated.slice) != 1:
+            return updated
+        value = self.ctx.evaluate(updated.value, self.bindings)
+        if not isinstance(value, Column) or not value.element:
+            return updated
+        part = updated.slice[0].slice
+        if isinstance(part, cst.Index):
+            key = self.ctx.evaluate(part.value, self.bindings)
+            if not (isinstance(key, Opaque) and isinstance(key.const, int)
+                    and not isinstance(key.const, bool)):
+                raise Unsupported("a value indexed by something other than a whole number")
+            result = _element_item(value, key.const)
+        else:
+            bounds = []
+            for bound in (part.lower, part.upper, part.step):
+                known = None if bound is None else self.ctx.evaluate(bound, self.bindings)
+                if known is not None and not (isinstance(known, Opaque) and (
+                        known.const is None or isinstance(known.const, int)
+                        and not isinstance(known.const, bool))):
+                    raise Unsupported("a slice whose bounds are not whole numbers")
+                bounds.append(None if known is None else known.const)
+            result = _element_slice(value, *bounds)
+        return self._bind(result, value).with_changes(lpar=updated.lpar, rpar=updated.rpar)
+
+
+def _membership(left: Value, right: Value, negate: bool) -> Column:
+    """`"x" in text` -> str.contains(literal=True); `value in ("a", "b")` -> is_in. A missing
+    value (NaN in pandas) is in no tuple of constants: False, where is_in is null."""
+    if _is_element(right) and isinstance(right, Column) and right.dtype == "str" \
+            and isinstance(left, Opaque) and isinstance(left.const, str):
+        code = right.code.attr("str").method("contains", left.const, literal=True)
+        result = _value(right, code, dtype="bool", null_is_false=True)
+    elif _is_element(left) and isinstance(left, Column) and isinstance(right, Opaque) \
+            and isinstance(right.const, (tuple, list, set, frozenset)):
+        # (not `in` a dict: its guard `d[x] if x in d` does not keep Polars from looking up
+        # every value in the then branch, where replace_strict fails on a value not in d)
+        items = list(right.const)
+        numbers = all(isinstance(v, (int, float)) and not isinstance(v, bool) and v == v
+                      for v in items)
+        if left.dtype == "str" and all(isinstance(v, str) for v in items):
+            pass
+        elif left.dtype == "float" and numbers:
+            items = [float(v) for v in items]  # 2 == 2.0: the float column holds them so
+        elif left.dtype == "int" and numbers and all(isinstance(v, int) for v in items):
+            pass
+        else:
+            raise Unsupported("`in` a collection whose items are not all of the value's type "
+                              "(text in text, numbers in numbers, no NaN or None)")
+        if isinstance(right.const, (set, frozenset)):
+            items = sorted(items)
+        result = _value(left, left.code.method("is_in", items), dtype="bool", null_is_false=True)
+    else:
+        raise Unsupported("`in` other than a text in a text value or a value in a tuple, list "
+                          "or set of constants")
+    if negate:
+        # `nan not in ("a",)` is True: the missing value is made False before it is negated
+        return _value(result, emit.unary("~", result.code.method("fill_null", False)),
+                      dtype="bool")
+    return result
+
+
+def _element_item(value: Column, index: int) -> Column:
+    """text[i] -> one character (str.slice / str.tail); parts[i] of a split -> list.get."""
+    if value.dtype == LIST_STR:
+        code = value.code.attr("list").method("get", index, null_on_oob=True)
+        return _value(value, code, dtype="str")
+    if value.dtype != "str":
+        raise Unsupported("an item of a value that is not text or a list of texts")
+    text = value.code.attr("str")
+    code = text.method("slice", index, 1) if index >= 0 \
+        else text.method("tail", -index).attr("str").method("head", 1)
+    return _value(value, code, dtype="str")
+
+
+def _element_slice(value: Column, lower: int | None, upper: int | None,
+                   step: int | None) -> Column:
+    """text[a:b] -> str.slice / str.head / str.tail, counting characters as Python does (a
+    negative bound counts from the end; str.head(-n) drops the last n)."""
+    if value.dtype != "str":
+        raise Unsupported("a slice of a value that is not text")
+    if step not in (None, 1):
+        raise Unsupported("a slice with a step")
+    code = value.code
+    if lower is not None and lower < 0:
+        if upper is not None and upper >= 0:
+            raise Unsupported("a slice from the end to a position from the start")
+        code = code.attr("str").method("tail", -lower)
+        if upper is not None:
+            code = code.attr("str").method("head", upper)
+        return _value(value, code, dtype="str")
+    start = lower or 0
+    if start:
+        code = code.attr("str").method("slice", start)
+    if upper is not None:
+        code = code.attr("str").method("head", max(upper - start, 0) if upper >= 0 else upper)
+    return _value(value, code, dtype="str")
 
 
 def _checked(value: Value, ctx: RuleContext) -> Value:
@@ -176,9 +331,13 @@ def _as_expression(statements: list[cst.BaseStatement],
             return _as_expression(remaining, {**names, name: _substituted(head.value, names)})
         raise Unsupported("a statement that only a Python call can run")
     if isinstance(first, cst.If):
+        merged = _merged_if(first, names)
+        if merged is not None:
+            # `if c: d = 0.0` / `else: d = 0.1`: d is `0.0 if c else 0.1` in what follows
+            return _as_expression(rest, merged)
         test = _substituted(first.test, names)
-        body = _as_expression([*first.body.body, *rest], names) if _returns(first.body.body) \
-            else None
+        # a branch that goes on to the next statements: they follow it in its own expression
+        body = _as_expression([*first.body.body, *rest], names)
         orelse = first.orelse
         if isinstance(orelse, cst.If):
             other = _as_expression([orelse, *rest], names)
@@ -186,27 +345,58 @@ def _as_expression(statements: list[cst.BaseStatement],
             other = _as_expression([*orelse.body.body, *rest], names)
         else:
             other = _as_expression(rest, names)
-        if body is None:
-            raise Unsupported("an `if` whose branch goes on to the next statement")
-        return cst.IfExp(test=test.with_changes(lpar=[cst.LeftParen()], rpar=[cst.RightParen()]),
-                         body=body, orelse=other)
+        return cst.IfExp(test=_parenthesized(test), body=body, orelse=other)
     raise Unsupported("a loop or a block that only a Python call can run")
 
 
-def _returns(statements: Sequence[cst.BaseStatement]) -> bool:
-    """Whether a block always ends in `return`."""
-    if not statements:
-        return False
-    last = statements[-1]
-    if isinstance(last, cst.SimpleStatementLine):
-        return any(isinstance(s, cst.Return) for s in last.body)
-    if isinstance(last, cst.If):
-        orelse = last.orelse
-        if orelse is None:
-            return False
-        other = [orelse] if isinstance(orelse, cst.If) else list(orelse.body.body)
-        return _returns(list(last.body.body)) and _returns(other)
-    return False
+def _parenthesized(node: cst.BaseExpression) -> cst.BaseExpression:
+    return node.with_changes(lpar=[cst.LeftParen()], rpar=[cst.RightParen()])
+
+
+def _assigned(statements: Sequence[cst.BaseStatement],
+              names: dict[str, cst.BaseExpression]) -> dict[str, cst.BaseExpression] | None:
+    """The local names after `statements` when all they do is name values (under `if`s that
+    do the same); None when one returns or does anything else."""
+    names = dict(names)
+    for stmt in statements:
+        if isinstance(stmt, cst.SimpleStatementLine):
+            for small in stmt.body:
+                if isinstance(small, cst.Pass):
+                    continue
+                if isinstance(small, cst.Assign) and len(small.targets) == 1 \
+                        and isinstance(small.targets[0].target, cst.Name):
+                    names[small.targets[0].target.value] = _substituted(small.value, names)
+                    continue
+                return None
+        elif isinstance(stmt, cst.If):
+            merged = _merged_if(stmt, names)
+            if merged is None:
+                return None
+            names = merged
+        else:
+            return None
+    return names
+
+
+def _merged_if(stmt: cst.If, names: dict[str, cst.BaseExpression]
+               ) -> dict[str, cst.BaseExpression] | None:
+    """An `if` whose branches only name values: each name the branches set is one conditional
+    expression (`d = 0.0 if c else 0.1`). None when a branch returns or does anything else."""
+    body = _assigned(list(stmt.body.body), names)
+    orelse = stmt.orelse
+    other = names if orelse is None else _assigned(
+        [orelse] if isinstance(orelse, cst.If) else list(orelse.body.body), names)
+    if body is None or other is None:
+        return None
+    test = _parenthesized(_substituted(stmt.test, names))
+    merged: dict[str, cst.BaseExpression] = {}
+    for name in {**body, **other}:
+        if name not in body or name not in other:
+            # read later it is unbound on the other path (UnboundLocalError in Python)
+            raise Unsupported(f"`{name}` is set in only some branches of an `if`")
+        a, b = body[name], other[name]
+        merged[name] = a if a is b else _parenthesized(cst.IfExp(test=test, body=a, orelse=b))
+    return merged
 
 
 def function_value(call: PandasCall, function: Value, ctx: RuleContext) -> cst.FunctionDef | None:
@@ -387,12 +577,102 @@ def element_replace(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("element.len")
 def element_len(call: PandasCall, ctx: RuleContext) -> Value:
-    """len(x) in a lambda -> str.len_chars() (characters, as Python counts them)."""
+    """len(x) in a lambda -> str.len_chars() (characters, as Python counts them); of the parts
+    of a split -> list.len()."""
     element = _element(call)
+    if element.dtype == LIST_STR:
+        code = element.code.attr("list").method("len").method("cast", emit.atom("pl.Int64"))
+        return _value(element, code, dtype="int")
     if element.dtype not in (None, "str"):
         raise Unsupported("len of a non-text value")
     code = element.code.attr("str").method("len_chars").method("cast", emit.atom("pl.Int64"))
     return _value(element, code, dtype="int")
+
+
+@rule("element.split")
+def element_split(call: PandasCall, ctx: RuleContext) -> Value:
+    """x.split(sep) in a lambda -> str.split(sep): the parts, empty ones kept ("a::b" gives
+    "a", "", "b" in both; "" gives [""])."""
+    element = _element(call)
+    ctx.reject_unknown(call, "sep", positional=1)
+    sep = call.const("sep", 0, None)
+    if element.dtype != "str":
+        raise Unsupported("split of a value that is not text")
+    if not isinstance(sep, str) or not sep:
+        # split() splits on runs of whitespace and drops empty parts
+        raise Unsupported("split without a separator (runs of whitespace)")
+    return _value(element, element.code.attr("str").method("split", sep), dtype=LIST_STR)
+
+
+# the Python types isinstance() tests porter reads
+_PYTHON_TYPES: dict[str, type] = {"str": str, "int": int, "float": float, "bool": bool}
+
+
+def _isinstance(element: Column, spec: cst.BaseExpression) -> Column:
+    """isinstance(x, str) / (int, float) / float in a lambda -> decided from the column's type:
+    pandas passes each value as a Python str, int, float or bool, and a missing one as the
+    float NaN (text, True/False with blanks and int columns with a missing value, which pandas
+    holds as floats). So isinstance(x, str) of a text column is is_not_null(), isinstance(x,
+    float) is_null(), and of a float column True."""
+    written = [spec] if isinstance(spec, cst.Name) else [e.value for e in spec.elements] \
+        if isinstance(spec, cst.Tuple) else []
+    if not written or not all(isinstance(n, cst.Name) and n.value in _PYTHON_TYPES
+                              for n in written):
+        raise Unsupported("isinstance of a type other than str, int, float and bool")
+    types = tuple(_PYTHON_TYPES[n.value] for n in written)  # type: ignore[attr-defined]
+    dtype = element.dtype
+    present: type
+    if dtype == "int" and (element.python_int or not element.float_int):
+        if element.nullable_int:
+            raise Unsupported("isinstance of a value of pandas' nullable integer column (pd.NA)")
+        present = int
+    elif dtype == "int" or dtype == "float":
+        present = float  # an int column with a missing value is float64 in pandas
+    elif dtype in ("str", "bool"):
+        present = _PYTHON_TYPES[dtype]
+    else:
+        raise Unsupported("isinstance of a value whose type porter does not know "
+                          "(convert with --data)")
+    given, missing = issubclass(present, types), issubclass(float, types)  # NaN is a float
+    if given == missing:
+        code = emit.pl("lit", given)
+    else:
+        code = element.code.method("is_not_null" if given else "is_null")
+    return _value(element, code, dtype="bool")
+
+
+@rule("element.max", "element.min")
+def element_extreme(call: PandasCall, ctx: RuleContext) -> Value:
+    """max(x, n) / min(x, n) of two numbers in a lambda -> pl.when(n > x).then(n).otherwise(x):
+    Python keeps the first unless the second is larger (smaller), so max(nan, 0) is nan and
+    max(0, nan) is 0; a missing value compares as null and falls through to the first."""
+    element = _element(call)
+    if call.kwargs or len(call.args) != 1:
+        raise Unsupported(f"{call.name}() of other than two values")
+    other = call.args[0]
+    constant = isinstance(other, Opaque) and other.is_const
+    if constant and (not isinstance(other.const, (int, float)) or isinstance(other.const, bool)
+                     or other.const != other.const):
+        raise Unsupported(f"{call.name}() of a value and something other than a number")
+    second_kind = ("int" if isinstance(other.const, int) else "float") if constant \
+        else value_dtype(other)
+    if element.dtype not in ("int", "float", None) or second_kind not in ("int", "float"):
+        raise Unsupported(f"{call.name}() of values other than numbers")
+    kinds = {element.dtype, second_kind}
+    if element.dtype is None:
+        ctx.lower(f"{call.name}() of a value whose type porter does not know (arithmetic of "
+                  f"ints and floats): where it is not a number pandas raises", 0.95)
+    if kinds == {"int", "float"} or element.dtype is None:
+        ctx.lower(f"{call.name}() of a float and an int returns either: where every value it "
+                  f"returns is the int, pandas makes an int64 column (written 0, here 0.0)", 0.95)
+    assert isinstance(other, (Opaque, Column))
+    second = int64_lit(other.const) if constant and isinstance(other.const, int) \
+        else ctx.expr(other, element.frame)
+    op = ">" if call.name == "max" else "<"
+    code = emit.when(emit.binop(second, op, element.code), second).method("otherwise", element.code)
+    # ints and floats together: pandas makes the column of the values returned float64
+    return _value(element, code, dtype=None if None in kinds else
+                  "float" if "float" in kinds else "int")
 
 
 @rule("element.str", "element.int", "element.float")
@@ -761,7 +1041,7 @@ def frame_apply(call: PandasCall, ctx: RuleContext) -> Value:
             value = replace(value, code=value.code.method("cast", emit.atom("pl.Float64")),
                             dtype="float")
         bindings[name] = value
-    result = _checked(ctx.evaluate(body, bindings), ctx)
+    result = _checked(evaluate_element(body, bindings, ctx), ctx)
     base = Column(emit.pl("lit", None), frame=frame, name=None)
     if isinstance(result, Opaque) and result.is_const:
         return derived_column(base, emit.pl("lit", result.const), name=None)  # the same for every row
@@ -1042,6 +1322,24 @@ def np_math(call: PandasCall, ctx: RuleContext) -> Value:
     if call.name in ("log", "sqrt"):
         code = code.method("fill_nan", None)  # a negative number: NaN, missing in pandas
     return _as_element(derived_column(column, code, dtype="float"), column)
+
+
+@rule("np.ceil", "np.floor")
+def np_ceil_floor(call: PandasCall, ctx: RuleContext) -> Value:
+    """np.ceil(s) / np.floor(s) -> .ceil() / .floor(), of one value inside a lambda too.
+
+    Handles: numpy (2.x) keeps an integer column's ints (3, written so), as Polars does; an
+    integer column pandas holds as floats (a missing value) gives floats; -0.5 rounds up to
+    -0.0 in both; NaN stays NaN (missing).
+    Caveats: text, date and True/False columns are TODOs.
+    """
+    column = _numpy_column(call, ctx, "x")
+    if column.dtype not in ("int", "float"):
+        raise Unsupported(f"np.{call.name} of a {column.dtype or 'value of unknown type'}")
+    code, dtype = column.code, column.dtype
+    if column.dtype == "int" and column.float_int and not column.python_int:
+        code, dtype = code.method("cast", emit.atom("pl.Float64")), "float"
+    return _as_element(derived_column(column, code.method(call.name), dtype=dtype), column)
 
 
 # -- np.select --------------------------------------------------------------------------------
