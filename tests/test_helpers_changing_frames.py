@@ -109,3 +109,23 @@ def test_lines_of_findings_are_the_original_lines():
     assert lines["frame.setitem"] == {5, 9}  # in each helper's body
     assert lines["pd.read_csv"] == {12}
     assert lines["frame.to_csv"] == {15}
+
+
+def test_helper_given_a_frame_handed_to_pandas_runs_once(tmp_path):
+    # the argument handed to pandas is the argument's own code: the helper written around it
+    # once (it had been written inside its own argument too, and ran twice)
+    result = same_text("""
+        import pandas as pd
+
+        def bump(df):
+            df["n"] = df["n"] + 1
+            return df
+
+        t = pd.read_csv("t.csv")
+        t = bump(t.drop_duplicates())
+        parts = t["x"].str.extract(r"(?i)r-?(\\d+)\\W*([a-z]+)")
+        t["x"] = parts[0]
+        t["area"] = parts[1]
+        t.to_csv("out.csv", index=False)
+    """, tmp_path, {"t.csv": "n,x\n1,r-7/north\n1,r-7/north\n2,R12 valley\n"})
+    assert result.converted_text.count("bump(") == 2  # its definition and one call

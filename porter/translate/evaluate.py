@@ -716,8 +716,11 @@ class Evaluator:
             elif isinstance(value, Column) and param in function.column_params:
                 text = value.code.text
             elif is_pandas(value):
-                text = self.handed_to_unknown(value, node).code.text
-                sites += self.handed_to_unknown(value, node).sites[len(value.sites):]
+                # the argument's own expression (pandas may run all of it: pandas_throughout),
+                # not the call's, which is written around it
+                handed_value = self.handed_to_unknown(value, arg.value)
+                text = handed_value.code.text
+                sites += handed_value.sites[len(value.sites):]
                 handed = True
             else:
                 text = value.code.text

@@ -364,7 +364,7 @@ def _different(left: pl.DataFrame, right: pl.DataFrame, matches: pl.DataFrame,
 def _rounding_halves(left: pl.DataFrame, right: pl.DataFrame, matches: pl.DataFrame,
                      columns: list[str]) -> bool:
     """Whether every differing cell is a float of a rounded column (every value of it, on both
-    sides, has at most d decimals, d <= 6) that differs by exactly one unit in its d-th
+    sides, has at most d decimals, 1 <= d <= 6) that differs by exactly one unit in its d-th
     decimal: the trace of floats added in another order, then rounded at a half."""
     for name in columns:
         i = matches.columns.index(name)
@@ -374,7 +374,7 @@ def _rounding_halves(left: pl.DataFrame, right: pl.DataFrame, matches: pl.DataFr
         values = pl.concat([a, b]).drop_nulls().drop_nans()
         decimals = next((d for d in range(7) if values.is_empty() or (
             (values * 10 ** d - (values * 10 ** d).round()).abs().max() < 1e-6)), None)
-        if decimals is None:
+        if not decimals:  # whole numbers: a count or an id one apart, not a rounded half
             return False
         wrong = ~matches.to_series(i)
         gaps = ((a.filter(wrong) - b.filter(wrong)).abs() * 10 ** decimals - 1).abs()
