@@ -180,11 +180,18 @@ PANDAS_CSV_DURATIONS = (
 
 # Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
 # writes 0.00005 and 1.5e-7; NaN as an empty field.
+# Only a column holding a value below 0.0001 (other than 0) needs the replacements.
 PANDAS_CSV_FLOATS = (
-    pl.selectors.float().fill_nan(None).cast(pl.String)
-    .str.replace(r"e-(\d)$", "e-0${1}")
-    .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
-    .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    pl.when(
+        (pl.selectors.float().abs() < 1e-4).and_(pl.selectors.float() != 0).any()
+    )
+    .then(
+        pl.selectors.float().fill_nan(None).cast(pl.String)
+        .str.replace(r"e-(\d)$", "e-0${1}")
+        .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
+        .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    )
+    .otherwise(pl.selectors.float().fill_nan(None).cast(pl.String))
 )
 
 # Integer columns as pandas' to_csv writes them: one holding a missing value is float in
@@ -332,13 +339,22 @@ castings = castings.with_columns(
 castings = castings.with_columns(ready_day=pl.col("ready_at").dt.truncate("1d"))
 
 # In[5]: each furnace's run: gap between pours, running metal since the first pour, rank of the yield
-castings = castings.sort(
-    ["furnace", "cast_at", "cast_no"],
-    nulls_last=True,
-    maintain_order=True,
+castings = (
+    castings
+    .sort(["furnace", "cast_at", "cast_no"], nulls_last=True, maintain_order=True)
+    .collect()
+    .lazy()
 )
-castings = castings.with_columns(
-    pour_seq=pl.when(pl.col("furnace").is_not_null()).then(pl.int_range(pl.len(), dtype=pl.Int64).over("furnace")) + 1,
+castings = (
+    castings
+    .with_columns(
+        pour_seq=pl.when(pl.col("furnace").is_not_null()).then(pl.int_range(pl.len(), dtype=pl.Int64).over("furnace")) + 1,
+    )
+    .collect()
+    .pipe(
+        lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("pour_seq",) if t[c].has_nulls()]),
+    )
+    .lazy()
 )
 castings = castings.with_columns(
     hours_since_pour=pandas_div(
@@ -563,9 +579,22 @@ moulders = (
     .with_columns(pandas_group_sums(pl.col("mean_cents"), mean=True, floats=False))
     .sort("moulder", nulls_last=True)
 )
-moulders = moulders.with_columns(mean_cents=pl.col("mean_cents").round(1))
-moulders = moulders.with_columns(
-    days_since_last=(pl.datetime(2025, 12, 31) - pl.col("last_cast")).dt.total_microseconds() // 86_400_000_000,
+moulders = (
+    moulders
+    .with_columns(mean_cents=pl.col("mean_cents").round(1))
+    .collect()
+    .lazy()
+)
+moulders = (
+    moulders
+    .with_columns(
+        days_since_last=(pl.datetime(2025, 12, 31) - pl.col("last_cast")).dt.total_microseconds() // 86_400_000_000,
+    )
+    .collect()
+    .pipe(
+        lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("days_since_last",) if t[c].has_nulls()]),
+    )
+    .lazy()
 )
 moulders = (
     moulders

@@ -21,9 +21,11 @@ def pandas_title(text):
     three first in a word ("ﬁ" as "Fi") is kept: a letter without case set before it makes
     Polars read it as inside a word, and is taken out after. A letter without case (CJK,
     Hebrew, a modifier letter) ends a word for pandas, not for Polars: a mark that is no
-    letter (U+FFFF) is set after each, and taken out after."""
+    letter (U+FFFF) is set after each, and taken out after. Where the column holds none of
+    these letters, Polars' own title case is pandas', and only that is computed."""
     kept, mark = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾲᾴᾶᾷῂῄῆῇῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷﬀ-ﬆﬓ-ﬗ]", "\ua66e"
-    return (
+    special = r"[ΣßǄ-ǌǱ-ǳİ\u0307\uffffŉǰΐΰևẖ-ẚὐὒὔὖᾲᾴᾶᾷῂῄῆῇῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷﬀ-ﬆﬓ-ﬗ[\p{Alphabetic}&&[^\p{Lu}\p{Ll}\p{Lt}]&&[^\p{Cased}&&[\p{Nl}\x{24b6}-\x{24e9}]]]]"
+    letter_by_letter = (
         text.str.replace_many({"Σ": "σ", "ß": "ẞ"})
         .str.replace_all(r"[\p{Alphabetic}&&[^\p{Lu}\p{Ll}\p{Lt}]&&[^\p{Cased}&&[\p{Nl}\x{24b6}-\x{24e9}]]]", "$0\uffff")
         .str.replace_all(kept, mark + "$0")
@@ -31,6 +33,11 @@ def pandas_title(text):
         .str.replace_all("\uffff", "", literal=True)
         .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"})
         .str.replace_all(mark + f"({kept})", "$1")
+    )
+    return (
+        pl.when(text.str.contains(special).any())
+        .then(letter_by_letter)
+        .otherwise(text.str.to_titlecase())
     )
 
 
@@ -96,11 +103,18 @@ PANDAS_CSV_DURATIONS = (
 
 # Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
 # writes 0.00005 and 1.5e-7; NaN as an empty field.
+# Only a column holding a value below 0.0001 (other than 0) needs the replacements.
 PANDAS_CSV_FLOATS = (
-    pl.selectors.float().fill_nan(None).cast(pl.String)
-    .str.replace(r"e-(\d)$", "e-0${1}")
-    .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
-    .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    pl.when(
+        (pl.selectors.float().abs() < 1e-4).and_(pl.selectors.float() != 0).any()
+    )
+    .then(
+        pl.selectors.float().fill_nan(None).cast(pl.String)
+        .str.replace(r"e-(\d)$", "e-0${1}")
+        .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
+        .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    )
+    .otherwise(pl.selectors.float().fill_nan(None).cast(pl.String))
 )
 
 # Integer columns as pandas' to_csv writes them: one holding a missing value is float in
@@ -184,12 +198,25 @@ hires = hires.with_columns(
     meter=pl.when(pl.col("boat").is_not_null())
     .then(pl.col("meter_hours").forward_fill().over("boat")),
 )
-hires = hires.with_columns(
-    engine_hours=pl.when(pl.col("boat").is_not_null())
-    .then(pl.col("meter").diff().over("boat")),
+hires = (
+    hires
+    .with_columns(
+        engine_hours=pl.when(pl.col("boat").is_not_null())
+        .then(pl.col("meter").diff().over("boat")),
+    )
+    .collect()
+    .lazy()
 )
-hires = hires.with_columns(
-    hire_seq=pl.when(pl.col("boat").is_not_null()).then(pl.int_range(pl.len(), dtype=pl.Int64).over("boat")) + 1,
+hires = (
+    hires
+    .with_columns(
+        hire_seq=pl.when(pl.col("boat").is_not_null()).then(pl.int_range(pl.len(), dtype=pl.Int64).over("boat")) + 1,
+    )
+    .collect()
+    .pipe(
+        lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("hire_seq",) if t[c].has_nulls()]),
+    )
+    .lazy()
 )
 hires = hires.with_columns(
     hours_to_date=pl.when(pl.col("boat").is_not_null())
@@ -266,7 +293,8 @@ hires = hires.with_columns(
 hires = hires.collect().to_pandas()
 # TODO(porter): frame.getitem.column: kept on pandas with the statement it is in
 # TODO(porter): series.isna: kept on pandas with the statement it is in
-# TODO(porter): frame.loc_setitem: loc assignment to several or computed columns
+# TODO(porter): frame.loc_setitem: loc assignment to several columns of a frame whose columns porter
+#   does not know
 hires.loc[hires["deposit"].isna(), ["kept_deposit", "damage_fee"]] = 0
 hires = pl.from_pandas(hires).lazy()
 hires = hires.with_columns(charge=pl.col("charge").round(2)).collect().lazy()
@@ -298,7 +326,15 @@ damage = damage.select(
 )
 
 # In[5]: each boat's month, ranked
-hires = hires.with_columns(month=pl.col("out_date").dt.month().cast(pl.Int32))
+hires = (
+    hires
+    .with_columns(month=pl.col("out_date").dt.month().cast(pl.Int32))
+    .collect()
+    .pipe(
+        lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("month",) if t[c].has_nulls()]),
+    )
+    .lazy()
+)
 hires = hires.with_columns(
     month_take=pl.when(pl.col("boat").is_not_null() & pl.col("month").is_not_null())
     .then(pl.col("charge").sum().over("boat", "month")),

@@ -12,6 +12,53 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_dtypes_text(probe):
+    """print(df.dtypes) as pandas prints it, from the frame's probe row (PANDAS_DTYPE_PROBE),
+    without importing pandas: each column's type as pandas names it (an integer column with a
+    missing value is float64, a True/False one object), names to the left and types to the
+    right, only the first and last five of more than sixty columns."""
+    kinds = []
+    for name, dtype in probe.schema.items():
+        missing = probe[name].has_nulls()
+        if dtype.is_integer() and dtype not in (pl.Int128, pl.UInt128):
+            kind = "float64" if missing else str(dtype).lower()
+        elif dtype in (pl.Float32, pl.Float64):
+            kind = str(dtype).lower()
+        elif dtype == pl.Boolean:
+            kind = "object" if missing else "bool"
+        elif dtype == pl.String:
+            kind = "str"
+        elif dtype == pl.Categorical or isinstance(dtype, pl.Enum):
+            kind = "category"
+        elif isinstance(dtype, pl.Datetime):
+            zone = f", {dtype.time_zone}" if dtype.time_zone else ""
+            kind = f"datetime64[{dtype.time_unit}{zone}]"
+        elif dtype == pl.Date:
+            kind = "datetime64[ms]"
+        elif isinstance(dtype, pl.Duration):
+            kind = f"timedelta64[{dtype.time_unit}]"
+        elif dtype in (pl.Time, pl.Null, pl.Binary) \
+                or isinstance(dtype, (pl.List, pl.Array, pl.Struct, pl.Decimal)):
+            kind = "object"
+        else:
+            kind = None
+        if kind is None or "\t" in name or "\r" in name or "\n" in name:  # pandas names it
+            return str(probe.to_pandas().dtypes)
+        kinds.append((name, kind))
+    if not kinds:
+        return "Series([], dtype: object)"
+    footer = "dtype: object"
+    if len(kinds) > 60:
+        footer = f"Length: {len(kinds)}, dtype: object"
+        kinds = [*kinds[:5], None, *kinds[-5:]]
+    shown = [k for k in kinds if k is not None]
+    left = max(len(name) for name, _ in shown)
+    right = max(len(kind) for _, kind in shown)
+    lines = [" " * left + "   " + "...".center(right + 1) if k is None
+             else k[0].ljust(left) + "    " + k[1].rjust(right) for k in kinds]
+    return "\n".join([*lines, footer])
+
+
 def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None, floats=True):
     """Each group's sum of floats (mean=True: mean) as pandas computes it, from the group's
     values as a list (pl.col(...) in an agg). pandas adds a group with a compensated (Kahan)
@@ -85,8 +132,12 @@ def pandas_upper(text):
         )
         .list.join("")
     )
-    return pl.when(text.str.contains(f"{kept}|{iota}")).then(by_piece).otherwise(
-        text.str.to_uppercase())
+    special = text.str.contains(f"{kept}|{iota}")
+    return (
+        pl.when(special.any())  # else only Polars' own upper case is computed
+        .then(pl.when(special).then(by_piece).otherwise(text.str.to_uppercase()))
+        .otherwise(text.str.to_uppercase())
+    )
 
 
 # The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
@@ -156,11 +207,18 @@ PANDAS_CSV_DURATIONS = (
 
 # Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
 # writes 0.00005 and 1.5e-7; NaN as an empty field.
+# Only a column holding a value below 0.0001 (other than 0) needs the replacements.
 PANDAS_CSV_FLOATS = (
-    pl.selectors.float().fill_nan(None).cast(pl.String)
-    .str.replace(r"e-(\d)$", "e-0${1}")
-    .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
-    .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    pl.when(
+        (pl.selectors.float().abs() < 1e-4).and_(pl.selectors.float() != 0).any()
+    )
+    .then(
+        pl.selectors.float().fill_nan(None).cast(pl.String)
+        .str.replace(r"e-(\d)$", "e-0${1}")
+        .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
+        .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    )
+    .otherwise(pl.selectors.float().fill_nan(None).cast(pl.String))
 )
 
 # Integer columns as pandas' to_csv writes them: one holding a missing value is float in
@@ -188,7 +246,7 @@ routes = pl.scan_csv(
     null_values=PANDAS_NA_VALUES,
     infer_schema_length=None,
 )
-print(tickets.select(PANDAS_DTYPE_PROBE).collect().to_pandas().dtypes)
+print(pandas_dtypes_text(tickets.select(PANDAS_DTYPE_PROBE).collect()))
 
 tickets = tickets.rename(
     {"Sail Date": "sail_date", "Route": "route_code", "Fare Class": "fare_class"},
@@ -220,22 +278,33 @@ tickets = tickets.with_columns(
 tickets = tickets.with_columns(
     revenue=pl.col("passengers") * pl.col("fare") + pl.col("vehicle_fee"),
 )
-tickets = tickets.with_columns(
-    sail_date=pl.when(
-        pl.col("sail_date")
-        .str.contains(
-            "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
-        ),
+tickets = (
+    tickets
+    .with_columns(
+        sail_date=pl.when(
+            pl.col("sail_date")
+            .str.contains(
+                "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
+            ),
+        )
+        .then(pl.col("sail_date"))
+        .when(
+            ~pl.col("sail_date").is_in(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"]) & pl.col("sail_date").is_not_null(),
+        )
+        .then(pl.lit("="))
+        .str.to_datetime("%Y-%m-%d", time_unit="us"),
     )
-    .then(pl.col("sail_date"))
-    .when(
-        ~pl.col("sail_date").is_in(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"]) & pl.col("sail_date").is_not_null(),
-    )
-    .then(pl.lit("="))
-    .str.to_datetime("%Y-%m-%d", time_unit="us"),
+    .collect()
+    .lazy()
 )
-tickets = tickets.with_columns(
-    weekday=pl.col("sail_date").dt.weekday().cast(pl.Int32) - 1,
+tickets = (
+    tickets
+    .with_columns(weekday=pl.col("sail_date").dt.weekday().cast(pl.Int32) - 1)
+    .collect()
+    .pipe(
+        lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("weekday",) if t[c].has_nulls()]),
+    )
+    .lazy()
 )
 
 tickets = tickets.sort(["sail_date", "ticket_no"], nulls_last=True, maintain_order=True)

@@ -13,6 +13,41 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_text_array(values):
+    """print(s.unique()) of text as pandas prints its string array, without importing pandas:
+    each text quoted, nan for a missing one, lines wrapped at 80 characters (values padded to
+    one width where they fill more than a line), the first and last ten of more than a
+    hundred."""
+    items = ["nan" if v is None else
+             "'" + v.replace("\t", r"\t").replace("\r", r"\r").replace("\n", r"\n") + "'"
+             for v in values.to_list()]
+    if len(items) < 2:
+        body = "[" + ", ".join(items) + "]"
+    else:
+        cut = len(items) > 100
+        head, tail = (items[:10], items[-10:]) if cut else ([], items)
+        if cut or len(", ".join(head)) >= 80 or len(", ".join(tail)) >= 80:
+            wide = max(len(item) for item in head + tail)
+            head, tail = [x.rjust(wide) for x in head], [x.rjust(wide) for x in tail]
+        body, line = "", "\n "
+
+        def add(word, limit=80):
+            nonlocal body, line
+            if len(line.rstrip()) + len(word.rstrip()) >= limit:
+                body, line = body + line.rstrip(), "\n "
+            line += word
+
+        for item in head:
+            add(item + ", ")
+        if cut:
+            body, line = body + line.rstrip() + "\n ...", "\n "
+        for item in tail[:-1]:
+            add(item + ", ")
+        add(tail[-1], 78)
+        body = "[" + (body + line + "]")[2:]
+    return f"<ArrowStringArray>\n{body}\nLength: {len(items)}, dtype: str"
+
+
 def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None, floats=True):
     """Each group's sum of floats (mean=True: mean) as pandas computes it, from the group's
     values as a list (pl.col(...) in an agg). pandas adds a group with a compensated (Kahan)
@@ -79,11 +114,18 @@ PANDAS_WHITESPACE = (
 
 # Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
 # writes 0.00005 and 1.5e-7; NaN as an empty field.
+# Only a column holding a value below 0.0001 (other than 0) needs the replacements.
 PANDAS_CSV_FLOATS = (
-    pl.selectors.float().fill_nan(None).cast(pl.String)
-    .str.replace(r"e-(\d)$", "e-0${1}")
-    .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
-    .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    pl.when(
+        (pl.selectors.float().abs() < 1e-4).and_(pl.selectors.float() != 0).any()
+    )
+    .then(
+        pl.selectors.float().fill_nan(None).cast(pl.String)
+        .str.replace(r"e-(\d)$", "e-0${1}")
+        .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
+        .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    )
+    .otherwise(pl.selectors.float().fill_nan(None).cast(pl.String))
 )
 
 # Integer columns as pandas' to_csv writes them: one holding a missing value is float in
@@ -198,11 +240,11 @@ quota = pl.scan_csv(
     infer_schema_length=None,
 )
 print(
-    landings.select(pl.col("species").unique(maintain_order=True))
-    .collect()
-    .to_series()
-    .to_pandas()
-    .unique(),
+    pandas_text_array(
+        landings.select(pl.col("species").unique(maintain_order=True))
+        .collect()
+        .to_series(),
+    ),
 )
 
 status = quota_status(landings, quota).collect().lazy()

@@ -30,8 +30,12 @@ def pandas_upper(text):
         )
         .list.join("")
     )
-    return pl.when(text.str.contains(f"{kept}|{iota}")).then(by_piece).otherwise(
-        text.str.to_uppercase())
+    special = text.str.contains(f"{kept}|{iota}")
+    return (
+        pl.when(special.any())  # else only Polars' own upper case is computed
+        .then(pl.when(special).then(by_piece).otherwise(text.str.to_uppercase()))
+        .otherwise(text.str.to_uppercase())
+    )
 
 
 # The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
@@ -168,23 +172,36 @@ shows = shows.with_columns(
     .then(pl.lit("="))
     .str.to_datetime("%Y-%m-%d", time_unit="us"),
 )
-shows = shows.with_columns(
-    closes=pl.when(
-        pl.col("closes")
-        .str.contains(
-            "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
-        ),
+shows = (
+    shows
+    .with_columns(
+        closes=pl.when(
+            pl.col("closes")
+            .str.contains(
+                "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
+            ),
+        )
+        .then(pl.col("closes"))
+        .when(
+            ~pl.col("closes").is_in(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"]) & pl.col("closes").is_not_null(),
+        )
+        .then(pl.lit("="))
+        .str.to_datetime("%Y-%m-%d", time_unit="us")
+        .fill_null(pl.datetime(2024, 12, 31)),
     )
-    .then(pl.col("closes"))
-    .when(
-        ~pl.col("closes").is_in(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"]) & pl.col("closes").is_not_null(),
-    )
-    .then(pl.lit("="))
-    .str.to_datetime("%Y-%m-%d", time_unit="us")
-    .fill_null(pl.datetime(2024, 12, 31)),
+    .collect()
+    .lazy()
 )
-shows = shows.with_columns(
-    days_open=(pl.col("closes") - pl.col("opens")).dt.total_microseconds() // 86_400_000_000 + 1,
+shows = (
+    shows
+    .with_columns(
+        days_open=(pl.col("closes") - pl.col("opens")).dt.total_microseconds() // 86_400_000_000 + 1,
+    )
+    .collect()
+    .pipe(
+        lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("days_open",) if t[c].has_nulls()]),
+    )
+    .lazy()
 )
 shows = shows.with_columns(
     short=pandas_upper(pl.col("title").str.head(10).str.strip_chars(PANDAS_WHITESPACE)),

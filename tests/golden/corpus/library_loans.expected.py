@@ -183,11 +183,18 @@ PANDAS_CSV_DURATIONS = (
 
 # Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
 # writes 0.00005 and 1.5e-7; NaN as an empty field.
+# Only a column holding a value below 0.0001 (other than 0) needs the replacements.
 PANDAS_CSV_FLOATS = (
-    pl.selectors.float().fill_nan(None).cast(pl.String)
-    .str.replace(r"e-(\d)$", "e-0${1}")
-    .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
-    .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    pl.when(
+        (pl.selectors.float().abs() < 1e-4).and_(pl.selectors.float() != 0).any()
+    )
+    .then(
+        pl.selectors.float().fill_nan(None).cast(pl.String)
+        .str.replace(r"e-(\d)$", "e-0${1}")
+        .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
+        .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    )
+    .otherwise(pl.selectors.float().fill_nan(None).cast(pl.String))
 )
 
 # Integer columns as pandas' to_csv writes them: one holding a missing value is float in
@@ -244,11 +251,30 @@ def load_loans(path):
 
 def flag_loans(loans):
     loans = loans.with_columns(still_out=pl.col("returned_on").is_null())
-    loans = loans.with_columns(
-        late=(pl.col("returned_on") > pl.col("due_on")).fill_null(False),
+    loans = (
+        loans
+        .with_columns(late=(pl.col("returned_on") > pl.col("due_on")).fill_null(False))
+        .collect()
+        .lazy()
     )
-    loans = loans.with_columns(year=pl.col("borrowed_on").dt.year())
-    loans = loans.with_columns(month=pl.col("borrowed_on").dt.month().cast(pl.Int32))
+    loans = (
+        loans
+        .with_columns(year=pl.col("borrowed_on").dt.year())
+        .collect()
+        .pipe(
+            lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("year",) if t[c].has_nulls()]),
+        )
+        .lazy()
+    )
+    loans = (
+        loans
+        .with_columns(month=pl.col("borrowed_on").dt.month().cast(pl.Int32))
+        .collect()
+        .pipe(
+            lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("month",) if t[c].has_nulls()]),
+        )
+        .lazy()
+    )
     loans = loans.with_columns(
         branch=pl.col("branch").str.replace_many({"İ": "i", "Σ": "σ"}).str.to_lowercase(),
     )

@@ -85,8 +85,12 @@ def pandas_upper(text):
         )
         .list.join("")
     )
-    return pl.when(text.str.contains(f"{kept}|{iota}")).then(by_piece).otherwise(
-        text.str.to_uppercase())
+    special = text.str.contains(f"{kept}|{iota}")
+    return (
+        pl.when(special.any())  # else only Polars' own upper case is computed
+        .then(pl.when(special).then(by_piece).otherwise(text.str.to_uppercase()))
+        .otherwise(text.str.to_uppercase())
+    )
 
 
 def pandas_to_datetime(text, coerce):
@@ -268,11 +272,18 @@ PANDAS_CSV_DURATIONS = (
 
 # Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
 # writes 0.00005 and 1.5e-7; NaN as an empty field.
+# Only a column holding a value below 0.0001 (other than 0) needs the replacements.
 PANDAS_CSV_FLOATS = (
-    pl.selectors.float().fill_nan(None).cast(pl.String)
-    .str.replace(r"e-(\d)$", "e-0${1}")
-    .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
-    .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    pl.when(
+        (pl.selectors.float().abs() < 1e-4).and_(pl.selectors.float() != 0).any()
+    )
+    .then(
+        pl.selectors.float().fill_nan(None).cast(pl.String)
+        .str.replace(r"e-(\d)$", "e-0${1}")
+        .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
+        .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    )
+    .otherwise(pl.selectors.float().fill_nan(None).cast(pl.String))
 )
 
 # Integer columns as pandas' to_csv writes them: one holding a missing value is float in

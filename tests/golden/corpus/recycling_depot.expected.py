@@ -13,6 +13,88 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_dtypes_text(probe):
+    """print(df.dtypes) as pandas prints it, from the frame's probe row (PANDAS_DTYPE_PROBE),
+    without importing pandas: each column's type as pandas names it (an integer column with a
+    missing value is float64, a True/False one object), names to the left and types to the
+    right, only the first and last five of more than sixty columns."""
+    kinds = []
+    for name, dtype in probe.schema.items():
+        missing = probe[name].has_nulls()
+        if dtype.is_integer() and dtype not in (pl.Int128, pl.UInt128):
+            kind = "float64" if missing else str(dtype).lower()
+        elif dtype in (pl.Float32, pl.Float64):
+            kind = str(dtype).lower()
+        elif dtype == pl.Boolean:
+            kind = "object" if missing else "bool"
+        elif dtype == pl.String:
+            kind = "str"
+        elif dtype == pl.Categorical or isinstance(dtype, pl.Enum):
+            kind = "category"
+        elif isinstance(dtype, pl.Datetime):
+            zone = f", {dtype.time_zone}" if dtype.time_zone else ""
+            kind = f"datetime64[{dtype.time_unit}{zone}]"
+        elif dtype == pl.Date:
+            kind = "datetime64[ms]"
+        elif isinstance(dtype, pl.Duration):
+            kind = f"timedelta64[{dtype.time_unit}]"
+        elif dtype in (pl.Time, pl.Null, pl.Binary) \
+                or isinstance(dtype, (pl.List, pl.Array, pl.Struct, pl.Decimal)):
+            kind = "object"
+        else:
+            kind = None
+        if kind is None or "\t" in name or "\r" in name or "\n" in name:  # pandas names it
+            return str(probe.to_pandas().dtypes)
+        kinds.append((name, kind))
+    if not kinds:
+        return "Series([], dtype: object)"
+    footer = "dtype: object"
+    if len(kinds) > 60:
+        footer = f"Length: {len(kinds)}, dtype: object"
+        kinds = [*kinds[:5], None, *kinds[-5:]]
+    shown = [k for k in kinds if k is not None]
+    left = max(len(name) for name, _ in shown)
+    right = max(len(kind) for _, kind in shown)
+    lines = [" " * left + "   " + "...".center(right + 1) if k is None
+             else k[0].ljust(left) + "    " + k[1].rjust(right) for k in kinds]
+    return "\n".join([*lines, footer])
+
+
+def pandas_text_array(values):
+    """print(s.unique()) of text as pandas prints its string array, without importing pandas:
+    each text quoted, nan for a missing one, lines wrapped at 80 characters (values padded to
+    one width where they fill more than a line), the first and last ten of more than a
+    hundred."""
+    items = ["nan" if v is None else
+             "'" + v.replace("\t", r"\t").replace("\r", r"\r").replace("\n", r"\n") + "'"
+             for v in values.to_list()]
+    if len(items) < 2:
+        body = "[" + ", ".join(items) + "]"
+    else:
+        cut = len(items) > 100
+        head, tail = (items[:10], items[-10:]) if cut else ([], items)
+        if cut or len(", ".join(head)) >= 80 or len(", ".join(tail)) >= 80:
+            wide = max(len(item) for item in head + tail)
+            head, tail = [x.rjust(wide) for x in head], [x.rjust(wide) for x in tail]
+        body, line = "", "\n "
+
+        def add(word, limit=80):
+            nonlocal body, line
+            if len(line.rstrip()) + len(word.rstrip()) >= limit:
+                body, line = body + line.rstrip(), "\n "
+            line += word
+
+        for item in head:
+            add(item + ", ")
+        if cut:
+            body, line = body + line.rstrip() + "\n ...", "\n "
+        for item in tail[:-1]:
+            add(item + ", ")
+        add(tail[-1], 78)
+        body = "[" + (body + line + "]")[2:]
+    return f"<ArrowStringArray>\n{body}\nLength: {len(items)}, dtype: str"
+
+
 def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None, floats=True):
     """Each group's sum of floats (mean=True: mean) as pandas computes it, from the group's
     values as a list (pl.col(...) in an agg). pandas adds a group with a compensated (Kahan)
@@ -84,11 +166,18 @@ PANDAS_DTYPE_PROBE = pl.when(~pl.all().is_null().any()).then(pl.all().head(1))
 
 # Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
 # writes 0.00005 and 1.5e-7; NaN as an empty field.
+# Only a column holding a value below 0.0001 (other than 0) needs the replacements.
 PANDAS_CSV_FLOATS = (
-    pl.selectors.float().fill_nan(None).cast(pl.String)
-    .str.replace(r"e-(\d)$", "e-0${1}")
-    .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
-    .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    pl.when(
+        (pl.selectors.float().abs() < 1e-4).and_(pl.selectors.float() != 0).any()
+    )
+    .then(
+        pl.selectors.float().fill_nan(None).cast(pl.String)
+        .str.replace(r"e-(\d)$", "e-0${1}")
+        .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
+        .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    )
+    .otherwise(pl.selectors.float().fill_nan(None).cast(pl.String))
 )
 
 # Integer columns as pandas' to_csv writes them: one holding a missing value is float in
@@ -121,7 +210,7 @@ week2 = (
     .lazy()
 )
 print(week1.collect_schema().names())
-print(week2.select(PANDAS_DTYPE_PROBE).collect().to_pandas().dtypes)
+print(pandas_dtypes_text(week2.select(PANDAS_DTYPE_PROBE).collect()))
 
 drops = pl.concat([week1, week2], how="diagonal_relaxed")
 print((drops.select(pl.len()).collect().item(), len(drops.collect_schema())))
@@ -143,11 +232,9 @@ drops = (
     .lazy()
 )
 print(
-    drops.select(pl.col("material").unique(maintain_order=True))
-    .collect()
-    .to_series()
-    .to_pandas()
-    .unique(),
+    pandas_text_array(
+        drops.select(pl.col("material").unique(maintain_order=True)).collect().to_series(),
+    ),
 )
 print(
     drops.select(pl.col("material"))

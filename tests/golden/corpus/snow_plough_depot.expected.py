@@ -69,11 +69,18 @@ PANDAS_CSV_DURATIONS = (
 
 # Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
 # writes 0.00005 and 1.5e-7; NaN as an empty field.
+# Only a column holding a value below 0.0001 (other than 0) needs the replacements.
 PANDAS_CSV_FLOATS = (
-    pl.selectors.float().fill_nan(None).cast(pl.String)
-    .str.replace(r"e-(\d)$", "e-0${1}")
-    .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
-    .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    pl.when(
+        (pl.selectors.float().abs() < 1e-4).and_(pl.selectors.float() != 0).any()
+    )
+    .then(
+        pl.selectors.float().fill_nan(None).cast(pl.String)
+        .str.replace(r"e-(\d)$", "e-0${1}")
+        .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
+        .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    )
+    .otherwise(pl.selectors.float().fill_nan(None).cast(pl.String))
 )
 
 # Integer columns as pandas' to_csv writes them: one holding a missing value is float in
@@ -194,8 +201,16 @@ sheets["salt_avg3"] = (sheets.groupby("truck")["salt_per_km"].rolling(3, min_per
 blades = sheets.groupby(["truck", "blade_no"]).agg(first_day=("day", "min"), last_day=("day", "max"),
                                                    shifts=("card", "count"), km=("km", "sum")).reset_index()
 blades = pl.from_pandas(blades).lazy()
-blades = blades.with_columns(
-    days_on=(pl.col("last_day") - pl.col("first_day")).dt.total_microseconds() // 86_400_000_000,
+blades = (
+    blades
+    .with_columns(
+        days_on=(pl.col("last_day") - pl.col("first_day")).dt.total_microseconds() // 86_400_000_000,
+    )
+    .collect()
+    .pipe(
+        lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("days_on",) if t[c].has_nulls()]),
+    )
+    .lazy()
 )
 blades = (
     blades

@@ -46,7 +46,7 @@ def pandas_dtypes_text(probe):
             kind = "object"
         else:
             kind = None
-        if kind is None or any(c in name for c in "\t\r\n"):  # pandas names it
+        if kind is None or "\t" in name or "\r" in name or "\n" in name:  # pandas names it
             return str(probe.to_pandas().dtypes)
         kinds.append((name, kind))
     if not kinds:

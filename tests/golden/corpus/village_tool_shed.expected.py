@@ -195,11 +195,18 @@ PANDAS_CSV_DURATIONS = (
 
 # Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
 # writes 0.00005 and 1.5e-7; NaN as an empty field.
+# Only a column holding a value below 0.0001 (other than 0) needs the replacements.
 PANDAS_CSV_FLOATS = (
-    pl.selectors.float().fill_nan(None).cast(pl.String)
-    .str.replace(r"e-(\d)$", "e-0${1}")
-    .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
-    .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    pl.when(
+        (pl.selectors.float().abs() < 1e-4).and_(pl.selectors.float() != 0).any()
+    )
+    .then(
+        pl.selectors.float().fill_nan(None).cast(pl.String)
+        .str.replace(r"e-(\d)$", "e-0${1}")
+        .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
+        .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    )
+    .otherwise(pl.selectors.float().fill_nan(None).cast(pl.String))
 )
 
 # Integer columns as pandas' to_csv writes them: one holding a missing value is float in
@@ -276,15 +283,20 @@ loans = loans.with_columns(
 )
 loans = loans.with_columns(lost=(pl.col("back_date") == "lost").fill_null(False))
 loans = loans.with_columns(broken=(pl.col("condition") == "broken").fill_null(False))
-loans = loans.with_columns(
-    back_date=pl.when(
-        pl.col("back_date")
-        .str.contains(
-            "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
-        ),
+loans = (
+    loans
+    .with_columns(
+        back_date=pl.when(
+            pl.col("back_date")
+            .str.contains(
+                "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
+            ),
+        )
+        .then(pl.col("back_date"))
+        .str.to_datetime("%Y-%m-%d", time_unit="us", strict=False),
     )
-    .then(pl.col("back_date"))
-    .str.to_datetime("%Y-%m-%d", time_unit="us", strict=False),
+    .collect()
+    .lazy()
 )
 loans = (
     loans
@@ -292,6 +304,9 @@ loans = (
         days_out=(pl.col("back_date").fill_null(pl.datetime(2024, 8, 31)) - pl.col("out_date")).dt.total_microseconds() // 86_400_000_000,
     )
     .collect()
+    .pipe(
+        lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("days_out",) if t[c].has_nulls()]),
+    )
     .lazy()
 )
 
