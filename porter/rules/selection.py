@@ -567,10 +567,13 @@ def dtypes(call: PandasCall, ctx: RuleContext) -> Value:
             raise Unsupported("porter does not know which integer columns pandas holds as its "
                               "nullable Int64 here (named Int64, not int64 or float64)")
     probe = replace(frame, code=frame.code.method("select", emit.atom(DTYPE_PROBE_CONSTANT)))
-    if ctx.printed and frame.int_labels_except is None:
+    handed = to_pandas(probe)
+    plain = probe.code.method("collect").method("to_pandas")
+    if ctx.printed and frame.int_labels_except is None and handed.text == plain.text:
         # printed: pandas' text written from the probe's Polars types, pandas not imported
+        # (not where the hand-over gives pandas types of its own: nullable ones from a file)
         return Scalar(emit.call(DTYPES_TEXT_FUNCTION, probe.code.method("collect")), pytype="str")
-    return PandasValue(to_pandas(probe).attr("dtypes"))
+    return PandasValue(handed.attr("dtypes"))
 
 
 # pandas' own nullable types, which Polars has no separate type for: a script that names them
