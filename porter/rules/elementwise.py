@@ -791,7 +791,9 @@ def element_ifexp(call: PandasCall, ctx: RuleContext) -> Value:
                     code.steps + (other.base[len("pl"):], *other.steps))
     else:
         code = code.method("otherwise", other)
-    kinds = {value_dtype(v) for v in (then, otherwise)}
+    # a None branch is a missing value of the other branch's kind (the parts of a split)
+    kinds = {value_dtype(v) for v in (then, otherwise)
+             if not (isinstance(v, Opaque) and v.is_const and v.const is None)}
     return derived_column(cond, code, dtype=kinds.pop() if len(kinds) == 1 else None,
                           others=[v for v in (then, otherwise) if isinstance(v, Column)])
 
