@@ -569,7 +569,10 @@ def dtypes(call: PandasCall, ctx: RuleContext) -> Value:
     probe = replace(frame, code=frame.code.method("select", emit.atom(DTYPE_PROBE_CONSTANT)))
     handed = to_pandas(probe)
     plain = probe.code.method("collect").method("to_pandas")
-    if ctx.printed and frame.int_labels_except is None and handed.text == plain.text:
+    # (a missing True/False made NaN, .fillna, changes no dtype name: object either way)
+    plain_types = handed.text == plain.text or (
+        handed.text.startswith(plain.text + ".fillna(") and handed.text.count(").") == plain.text.count(").") + 1)
+    if ctx.printed and frame.int_labels_except is None and plain_types:
         # printed: pandas' text written from the probe's Polars types, pandas not imported
         # (not where the hand-over gives pandas types of its own: nullable ones from a file)
         return Scalar(emit.call(DTYPES_TEXT_FUNCTION, probe.code.method("collect")), pytype="str")
