@@ -582,11 +582,11 @@ def element_len(call: PandasCall, ctx: RuleContext) -> Value:
     element = _element(call)
     if element.dtype == LIST_STR:
         code = element.code.attr("list").method("len").method("cast", emit.atom("pl.Int64"))
-        return _value(element, code, dtype="int")
+        return replace(_value(element, code, dtype="int"), python_int=True)
     if element.dtype not in (None, "str"):
         raise Unsupported("len of a non-text value")
     code = element.code.attr("str").method("len_chars").method("cast", emit.atom("pl.Int64"))
-    return _value(element, code, dtype="int")
+    return replace(_value(element, code, dtype="int"), python_int=True)  # a Python int
 
 
 @rule("element.split")
@@ -735,6 +735,59 @@ def element_cast(call: PandasCall, ctx: RuleContext) -> Value:
                       "reads \" 1.5\" and \"1_000\", which Polars' cast refuses", 0.9)
         code = code.method("cast", emit.atom(target))
     return replace(_value(element, code, dtype=call.name), python_int=call.name == "int")
+
+
+@rule("element.format")
+def element_format(call: PandasCall, ctx: RuleContext) -> Value:
+    """f"{x:.0f}" / f"{n:03d}" in a lambda or a row function -> the text Python's format()
+    writes, as an expression.
+
+    Handles: `.0f` of a float rounds the exact value half to even (0.5 -> "0", 2.5 -> "2"),
+    as Polars' round(0) does; "-0" for a negative value that rounds to 0 and for -0.0; "nan",
+    "inf" and "-inf"; a missing float reaches format() as NaN: "nan". `d`, `Nd` and `0Nd` of an
+    int made by int(), len() or round(): padded with blanks or zeros after the sign. `.0f` of
+    an int column: its digits, "nan" where missing.
+    Caveats: an int column with a missing value is float64 in pandas, whose `.0f` of a value
+    beyond 2**53 writes the nearest float's digits. Other specs are TODOs: `.2f` rounds the exact
+    binary value (2.675 -> "2.67"),
+    which no expression does; `d` of a column value may reach Python as a float (a missing
+    value, a row of a frame with a float column), where format() raises.
+    """
+    element = _element(call)
+    spec = call.const("format_spec", 0, kinds=(str,))
+    x = element.code
+    if spec == ".0f" and element.dtype == "float":
+        rounded = x.method("round", 0)
+        negative_zero = emit.binop(emit.binop(rounded, "==", 0), "&", emit.binop(
+            emit.binop(x, "<", 0), "|", emit.binop(emit.binop(1.0, "/", x), "<", 0)))
+        digits = emit.when(x.method("is_finite"), rounded).method(
+            "cast", emit.atom("pl.Int128")).method("cast", emit.atom("pl.String"))
+        code = (emit.pl("when", x.method("is_nan")).method("then", emit.pl("lit", "nan"))
+                .method("when", emit.binop(x, "==", emit.atom('float("inf")')))
+                .method("then", emit.pl("lit", "inf"))
+                .method("when", emit.binop(x, "==", emit.atom('float("-inf")')))
+                .method("then", emit.pl("lit", "-inf"))
+                .method("when", negative_zero).method("then", emit.pl("lit", "-0"))
+                .method("otherwise", digits).method("fill_null", "nan"))
+        return _value(element, code, dtype="str")
+    if spec == ".0f" and element.dtype == "int":
+        # an int, or the float pandas holds where the column has a missing value: the same
+        # digits (the column may be made Float64 at run time for pandas' float64: cast back);
+        # the missing value is NaN: "nan"
+        code = x.method("cast", emit.atom("pl.Int64")).method("cast", emit.atom("pl.String"))
+        return _value(element, code if element.python_int else code.method("fill_null", "nan"),
+                      dtype="str")
+    width = re.fullmatch(r"(0?)(\d*)d", spec)
+    if width and element.dtype == "int" and element.python_int:
+        code = x.method("cast", emit.atom("pl.String"))
+        if width.group(2):
+            size = int(width.group(2))
+            code = code.attr("str").method("zfill", size) if width.group(1) else \
+                code.attr("str").method("pad_start", size)
+        return _value(element, code, dtype="str")
+    raise Unsupported(f"the format spec {spec!r} of a value whose type is "
+                      f"{element.dtype or 'not known'}: Python's formatting of each value has "
+                      "no expression form here")
 
 
 @rule("element.round", "element.abs")

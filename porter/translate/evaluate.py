@@ -298,12 +298,25 @@ class Evaluator:
         pl.concat_str (emit.formatted): each value is written as str() writes it (element.str)."""
         texts: list[str] = [""]
         values: list[Value] = []
+        formatted: set[int] = set()  # the values already written as text by their format spec
         for part in node.parts:
             if isinstance(part, cst.FormattedStringText):
                 texts[-1] += part.value
                 continue
             assert isinstance(part, cst.FormattedStringExpression)
             value = self.eval(part.expression)
+            spec = _plain_format_spec(part)
+            if spec is not None and isinstance(value, Column) and value.element:
+                # f"{x:.0f}", f"{n:03d}": Python's formatting of each value, where an
+                # expression writes the same text (element.format)
+                value = self.dispatch("element.format", PandasCall(
+                    value, "format", (Opaque(emit.lit(spec), const=spec),), {}, node), node)
+                if not isinstance(value, Column) or any(x.status == "todo" for x in value.sites):
+                    return value
+                values.append(value)
+                texts.append("")
+                formatted.add(len(values) - 1)
+                continue
             if part.format_spec is not None or part.conversion not in (None, "s") or part.equal:
                 if isinstance(value, Column) and value.element:
                     # Python formats each value of the column (f"{x:03d}", f"{s!r}"): kept as
@@ -332,7 +345,10 @@ class Evaluator:
         except (SyntaxError, ValueError):
             return self.generic(node)
         parts = []
-        for column in columns:
+        for index, column in enumerate(columns):
+            if index in formatted:
+                parts.append(column)
+                continue
             written = self.dispatch("element.str", PandasCall(column, "str", (), {}, node), node)
             if not isinstance(written, Column) or any(x.status == "todo" for x in written.sites):
                 return self.generic(node)
@@ -1173,8 +1189,18 @@ _LABELS_NOT_READ = frozenset({
     "groupby.min", "groupby.max", "groupby.count", "groupby.size", "groupby.nunique",
     "groupby.std", "groupby.var", "groupby.first", "groupby.last", "groupby.quantile",
 })
-# text and date methods work value by value: the result keeps the labels without reading them
-_ELEMENT_PREFIXES = ("series.str.", "series.dt.")
+# text and date methods work value by value, as do the operations inside an element or row
+# function: the result keeps the labels without reading them
+_ELEMENT_PREFIXES = ("series.str.", "series.dt.", "element.")
+
+
+def _plain_format_spec(part: cst.FormattedStringExpression) -> str | None:
+    """The format spec of `{x:.0f}` written out as text (no nested placeholder, no !r or =)."""
+    if part.format_spec is None or part.conversion not in (None, "s") or part.equal:
+        return None
+    if not all(isinstance(p, cst.FormattedStringText) for p in part.format_spec):
+        return None
+    return "".join(p.value for p in part.format_spec)  # type: ignore[union-attr]
 
 
 def _only_by_column(body: cst.CSTNode, param: str) -> bool:
