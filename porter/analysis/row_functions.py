@@ -35,7 +35,14 @@ _EXCEPTIONS = frozenset(name for name in dir(builtins)
                         if isinstance(getattr(builtins, name), type)
                         and issubclass(getattr(builtins, name), BaseException))
 SAFE_NAMES = SAFE_CALLS | _EXCEPTIONS
-PURE_MODULES = frozenset({"math", "re", "string"})
+PURE_MODULES = frozenset({"math", "re", "string", "difflib"})
+_LIST_OF_STR = "list of str"  # a kind no column holds: only read through an item
+# decorators that keep a function's results: a cache of a function that changes nothing
+_CACHES = frozenset({"lru_cache", "cache", "functools.lru_cache", "functools.cache"})
+# calls whose result is a plain Python value (not a frame or a Series porter converts)
+_PYTHON_VALUE_CALLS = frozenset({"list", "set", "tuple", "dict", "sorted", "frozenset", "len",
+                                 "int", "float", "str", "bool"})
+_PYTHON_VALUE_METHODS = frozenset({"tolist", "to_list", "item"})
 # methods that change the object they are called on
 _MUTATING = frozenset({
     "append", "extend", "insert", "remove", "pop", "clear", "sort", "reverse", "update",
@@ -109,21 +116,47 @@ class ModuleFacts:
                         self.modules.add(alias.name)
         for stmt in module.body:
             if isinstance(stmt, ast.FunctionDef) and defined[stmt.name] == 1 \
-                    and stores.get(stmt.name, 0) == 1 and not stmt.decorator_list:
+                    and stores.get(stmt.name, 0) == 1 \
+                    and all(_is_cache(d) for d in stmt.decorator_list):
                 self.functions[stmt.name] = stmt
         self.constants: dict[str, object] = {}
+        # names bound once, at the top of the module, to a plain Python value computed at run
+        # time (SPECIES = checklist["species"].tolist()) that nothing changes afterwards: a
+        # function reading one sees the same value whenever Polars runs it
+        self.frozen: set[str] = set()
         changed = _changed_in_place(module)
         for stmt in module.body:
             if isinstance(stmt, ast.Assign) and len(stmt.targets) == 1 \
                     and isinstance(stmt.targets[0], ast.Name):
                 name = stmt.targets[0].id
-                try:
-                    value = ast.literal_eval(stmt.value)
-                except (ValueError, TypeError, SyntaxError, MemoryError, RecursionError):
+                if stores.get(name, 0) != 1 or name in changed:
                     continue
-                if stores.get(name, 0) == 1 and name not in changed:
-                    self.constants[name] = value
+                try:
+                    self.constants[name] = ast.literal_eval(stmt.value)
+                except (ValueError, TypeError, SyntaxError, MemoryError, RecursionError):
+                    if _python_value(stmt.value):
+                        self.frozen.add(name)
         self.bound = set(stores) | set(defined) | self.modules
+
+
+def _is_cache(decorator: ast.expr) -> bool:
+    """@lru_cache, @lru_cache(maxsize=None), @functools.cache: the function's results are
+    kept; for a function that changes nothing outside itself, the results are the same."""
+    if isinstance(decorator, ast.Call):
+        decorator = decorator.func
+    return ast.unparse(decorator) in _CACHES
+
+
+def _python_value(node: ast.expr) -> bool:
+    """A value that is a plain Python object whatever the script's frames are: list(...),
+    a comprehension, s.tolist(), len(...)."""
+    if isinstance(node, (ast.ListComp, ast.SetComp, ast.DictComp)):
+        return True
+    if isinstance(node, ast.Call):
+        if isinstance(node.func, ast.Name):
+            return node.func.id in _PYTHON_VALUE_CALLS
+        return isinstance(node.func, ast.Attribute) and node.func.attr in _PYTHON_VALUE_METHODS
+    return False
 
 
 def _stored_names(node: ast.AST) -> Iterator[str]:
@@ -159,7 +192,8 @@ def _changed_in_place(module: ast.Module) -> set[str]:
             func = node.func
             safe = isinstance(func, ast.Name) and func.id in SAFE_CALLS | {"print"} or \
                 isinstance(func, ast.Attribute) and _root(func) not in modules \
-                and func.attr not in _MUTATING
+                and func.attr not in _MUTATING or \
+                isinstance(func, ast.Attribute) and _root(func) in PURE_MODULES  # math, difflib
             if not safe:
                 for arg in [*node.args, *(k.value for k in node.keywords)]:
                     for name in ast.walk(arg):
@@ -326,7 +360,8 @@ def _check_pure(function: ast.FunctionDef, facts: ModuleFacts, seen: set[str]) -
         if isinstance(node, ast.Call):
             _check_call(node, function, facts, local, params, seen)
         if isinstance(node, ast.Name) and isinstance(node.ctx, ast.Load) and node.id not in local:
-            if node.id in facts.constants or node.id in facts.functions or node.id in facts.modules:
+            if node.id in facts.constants or node.id in facts.functions \
+                    or node.id in facts.modules or node.id in facts.frozen:
                 continue
             if node.id in SAFE_NAMES and node.id not in facts.bound:
                 continue
@@ -477,6 +512,9 @@ def _kinds(node: ast.AST, names: dict[str, frozenset[str]], facts: ModuleFacts,
         return kinds if kinds and kinds <= RESULT_TYPES | {"none"} else unknown
     if isinstance(node, ast.Subscript) and k(node.value) == frozenset({"str"}):
         return frozenset({"str"})  # a character or a slice of a text
+    if isinstance(node, ast.Subscript) and k(node.value) == frozenset({_LIST_OF_STR}) \
+            and isinstance(node.slice, ast.Constant) and isinstance(node.slice.value, int):
+        return frozenset({"str"})  # an item of a list of texts (IndexError where it is empty)
     if isinstance(node, (ast.Subscript, ast.Attribute)) and not k(node.value):
         return frozenset()  # not known yet: the fixpoint comes back to it
     if isinstance(node, ast.BinOp):
@@ -574,6 +612,9 @@ def _call_kinds(node: ast.Call, k: Callable[[ast.AST], frozenset[str]], facts: M
             if func.attr in _MATH_TO_FLOAT:
                 return frozenset({"float"})
             return unknown
+        if isinstance(func.value, ast.Name) and func.value.id == "difflib" \
+                and "difflib" in facts.modules and func.attr == "get_close_matches":
+            return frozenset({_LIST_OF_STR})  # the closest texts of the list given
         receiver = k(func.value)
         if not receiver:
             return frozenset()  # not known yet: the fixpoint comes back to it

@@ -1172,6 +1172,15 @@ def _python_values(column: Column, function: cst.FunctionDef, reason: str, skip_
         mixed = f": it {MIXED_COLUMN}" if exc.mixed else ""
         raise Unsupported(f"{reason}; {exc}{mixed}") from None
     values = column.code.method("fill_nan", None) if column.dtype == "float" else column.code
+    if column.dtype == "str":
+        # the same text gives the same result: one call per distinct text, not per row
+        code = emit.call(DISTINCT_FUNCTION, values, emit.atom(name),
+                         emit.atom(f"pl.{found.returns}"),
+                         **({"skip_nulls": True} if skip_missing else {}))
+        code = _python_result(code, found, ctx)
+        ctx.lower(f"runs {name} in Python once per distinct text (map_distinct), a missing "
+                  f"value passed as NaN as pandas passes it", 0.9)
+        return derived_column(column, code, name=column.name, dtype=_PORTER_TYPES[found.returns])
     if skip_missing:  # na_action="ignore": pandas leaves a missing value missing
         code = values.method("map_elements", emit.atom(name),
                              return_dtype=emit.atom(f"pl.{found.returns}"))
@@ -1183,6 +1192,27 @@ def _python_values(column: Column, function: cst.FunctionDef, reason: str, skip_
     ctx.lower(f"runs {name} in Python once per value (map_elements), a missing value passed as "
               f"NaN as pandas passes it", 0.9)
     return derived_column(column, code, name=column.name, dtype=_PORTER_TYPES[found.returns])
+
+
+# a function of one text that changes nothing else, run once per distinct text of a column
+DISTINCT_FUNCTION = "map_distinct"
+DISTINCT_DEFINITION = '''\
+def map_distinct(texts, function, return_dtype, skip_nulls=False):
+    """function(text) on every row, run once per distinct text: the function changes nothing
+    outside itself and reads only what the script no longer changes, so it returns the same
+    for the same text, and its result is put on every row holding that text. A missing text
+    is passed as NaN, as pandas passes it (skip_nulls: it stays missing)."""
+
+    def run(values):
+        distinct = values.unique(maintain_order=True)
+        if skip_nulls:
+            distinct = distinct.drop_nulls()
+        results = [function(float("nan") if v is None else v) for v in distinct]
+        return values.replace_strict(distinct, pl.Series(results, dtype=return_dtype),
+                                     default=None, return_dtype=return_dtype)
+
+    return texts.map_batches(run, return_dtype=return_dtype)
+'''
 
 
 # the Polars type a Python function's results are given -> porter's name for it

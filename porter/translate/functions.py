@@ -112,7 +112,8 @@ def _rebound_at_every_call(module: cst.Module, function: str, params: tuple[str,
 
 
 def function_definitions(module: cst.Module) -> dict[str, cst.FunctionDef]:
-    """The module's plain functions defined once (no decorators), by name."""
+    """The module's plain functions defined once (no decorators but a cache of results,
+    @lru_cache / @cache, which keeps what a function of its value alone returns), by name."""
     found: dict[str, cst.FunctionDef] = {}
     seen: set[str] = set()
     for stmt in module.body:
@@ -120,10 +121,18 @@ def function_definitions(module: cst.Module) -> dict[str, cst.FunctionDef]:
             name = stmt.name.value
             if name in seen:
                 found.pop(name, None)
-            elif isinstance(stmt, cst.FunctionDef) and not stmt.decorators:
+            elif isinstance(stmt, cst.FunctionDef) and all(
+                    _is_cache(d.decorator) for d in stmt.decorators):
                 found[name] = stmt
             seen.add(name)
     return found
+
+
+def _is_cache(decorator: cst.BaseExpression) -> bool:
+    if isinstance(decorator, cst.Call):
+        decorator = decorator.func
+    return cst.Module([]).code_for_node(decorator) in (
+        "lru_cache", "cache", "functools.lru_cache", "functools.cache")
 
 
 def _passed_as_values(module: cst.Module, names: set[str]) -> set[str]:

@@ -8,6 +8,7 @@ from porter.analysis.imports import ImportFacts
 from porter.rules.datetimes import GUESS_DEFINITION, GUESS_FUNCTION
 from porter.rules.handover import TEXT_DEFINITION, TEXT_FUNCTION
 from porter.translate.handover import VALUES_DEFINITION, VALUES_FUNCTION
+from porter.rules.elementwise import DISTINCT_DEFINITION, DISTINCT_FUNCTION
 from porter.rules.strings import (
     TITLE_DEFINITION, TITLE_FUNCTION, UPPER_DEFINITION, UPPER_FUNCTION, WHITESPACE_CONSTANT,
     WHITESPACE_DEFINITION,
@@ -133,6 +134,7 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (TEXT_VALUES_FUNCTION, TEXT_VALUES_DEFINITION),
                                  (TEXT_ARRAY_FUNCTION, TEXT_ARRAY_DEFINITION),
                                  (DTYPES_TEXT_FUNCTION, DTYPES_TEXT_DEFINITION),
+                                 (DISTINCT_FUNCTION, DISTINCT_DEFINITION),
                                  (VALUES_FUNCTION, VALUES_DEFINITION)):
         if function not in used or _defines(module, function):
             continue
