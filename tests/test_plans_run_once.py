@@ -199,3 +199,23 @@ def test_two_results_of_one_frame_in_one_statement_are_two_executions():
         ''')
     read = text[text.index("df ="):text.index("print(")]
     assert ".collect()" in read, text
+
+
+def test_a_plan_collected_by_the_next_statement_is_not_collected_before(tmp_path):
+    # the weekday of a date that may be missing is float64 in pandas: its statement collects
+    # the frame to type the column. That collect runs the date parse's plan once, so the parse
+    # itself stays lazy (collecting it too kept two copies of the frame in memory)
+    (tmp_path / "sailings.csv").write_text("sailed,kg\n2024-06-01,3\n,4\n2024-06-03,5\n")
+    from porter.api import convert_source
+    text = convert_source(textwrap.dedent('''
+        import pandas as pd
+        t = pd.read_csv("sailings.csv")
+        t["sailed"] = pd.to_datetime(t["sailed"], format="%Y-%m-%d")
+        t["weekday"] = t["sailed"].dt.dayofweek
+        t = t.sort_values("sailed")
+        print(t.head())
+        t.to_csv("out.csv", index=False)
+        '''), options=Options(data_dir=str(tmp_path))).converted_text
+    parse = text[text.index('t = t.with_columns(\n    sailed='):text.index("weekday=")]
+    assert ".collect()" not in parse, text
+    assert text.count(".collect()") == 3, text  # the weekday, the sort (two uses), the print

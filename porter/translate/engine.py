@@ -132,6 +132,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
         services.labels_needed = set()
         services.label_functions, services.pandas_functions = set(), set()
         services.consumers, services.frame_parents = {}, {}
+        services.materialized = set()
         services.applied_functions, services.applied_kinds = {}, {}
         walker = _Walker(services, facts, emit_code=False, files=files)
         walker.block(module.body, _initial_env(facts), module.default_indent, "")
@@ -151,6 +152,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
         labels_before = set(services.labels_needed)
         services.call_sites = {}
         services.consumers, services.frame_parents = {}, {}
+        services.materialized = set()
         services.applied_functions, services.applied_kinds = {}, {}
         walker = _Walker(services, facts, emit_code=False, files=files)
         walker.block(module.body, _initial_env(facts), module.default_indent, "")
@@ -159,7 +161,8 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
             break
         services.functions = updated
 
-    services.collect_at = plans_to_collect(services.consumers, services.frame_parents)
+    services.collect_at = plans_to_collect(services.consumers, services.frame_parents,
+                                           frozenset(services.materialized))
     services.call_sites = {}
     walker = _Walker(services, facts, emit_code=True, files=files)
     body, _ = walker.block(module.body, _initial_env(facts), module.default_indent, "")
@@ -818,6 +821,8 @@ class _Walker:
                     execution = self.sink_run = \
                         run if run is not None and not comment else id(small)
                 self.count_consumers(text, before, execution)
+                if len(smalls) == 1 and _collects_what_it_binds(text):
+                    self.services.materialized.add(self.statement_key)
         self.record(tuple(sites))
         if not self.emit_code:  # an analysis pass only learns; the last pass writes
             return [line]
@@ -2083,7 +2088,8 @@ def _from_pandas(name: str, frame: Frame) -> Code:
 
 
 def plans_to_collect(consumers: dict[int, set[tuple[int, int]]],
-                     parents: dict[int, set[int]]) -> frozenset[int]:
+                     parents: dict[int, set[int]],
+                     materialized: frozenset[int] = frozenset()) -> frozenset[int]:
     """The bindings whose plans are collected where they are made (the materialisation model).
 
     A statement that computes a frame (a sink, a print, a scalar, a hand-over to pandas) runs
@@ -2094,6 +2100,8 @@ def plans_to_collect(consumers: dict[int, set[tuple[int, int]]],
     twice (a join of two aggregates of one frame, or writes batched into one pl.collect_all)
     computes it once: Polars finds the shared part. A chain used once stays lazy up to its
     sink; a frame shared by several outputs is computed once, at the last point they share.
+    A binding whose own statement collects it (`materialized`) runs the plans it is made
+    from once, there: that collect is already one of their consumers.
     """
     children: dict[int, set[int]] = {}
     for child, owners in parents.items():
@@ -2111,6 +2119,8 @@ def plans_to_collect(consumers: dict[int, set[tuple[int, int]]],
             if child in path:
                 continue  # a loop that rebinds the name: counted through its executions
             below = executions(child, path | {child})
+            if child in materialized:
+                continue  # its statement's collect is counted among this plan's consumers
             # a frame that is collected runs this plan once, where it is made; one that is
             # not runs it wherever it runs (one plan reading it twice computes it once)
             points |= {("made", child)} if len(below) >= 2 else below
@@ -2165,6 +2175,24 @@ def _executions(tree: ast.AST) -> list[set[str]]:
         executions.append({n.id for n in ast.walk(receiver)
                            if isinstance(n, ast.Name) and id(n) not in inner})
     return executions
+
+
+def _collects_what_it_binds(text: str) -> bool:
+    """Whether `name = <chain>` collects the plan it binds (`t.with_columns(...).collect()
+    .pipe(...).lazy()`): the frame is made there, in memory."""
+    try:
+        tree = ast.parse(text)
+    except SyntaxError:
+        return False
+    if len(tree.body) != 1 or not isinstance(tree.body[0], ast.Assign) \
+            or not isinstance(tree.body[0].targets[0], ast.Name):
+        return False
+    node = tree.body[0].value
+    while isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute):
+        if node.func.attr == "collect" and not node.args and not node.keywords:
+            return True
+        node = node.func.value
+    return False
 
 
 def _row_counts(tree: ast.AST) -> set[str]:

@@ -112,6 +112,9 @@ class Services:
     frame_parents: dict[int, set[int]] = field(default_factory=dict)
     # the bindings collected where they are made: plans that would otherwise run more than once
     collect_at: frozenset[int] = frozenset()
+    # the bindings whose own statement collects the plan it binds (a rule's .collect(): a
+    # column typed at run time): the frames they are made from run once there
+    materialized: set[int] = field(default_factory=set)
     # Series kept in a name whose frame's name later holds other rows: kept as a frame of its own
     stale_series: set[int] = field(default_factory=set)
     # frames bound to a name whose row labels pandas code reads later (`pos.index`) after a
