@@ -227,12 +227,15 @@ class _Walker:
             if not isinstance(stmt, cst.SimpleStatementLine):
                 self.sink_run = None
             self.has_next = i < len(body) - 1
+            # the comments of a statement left out (a function ported where applied) go on the
+            # next statement of this block, not inside it (the body of a def that follows)
+            pending, self.carried = self.carried, []
             new, env = self.statement(stmt, env, unit, indent)
-            if self.carried and new and hasattr(new[0], "leading_lines"):
-                # the comments of a statement left out (a function ported where applied)
-                new = [new[0].with_changes(leading_lines=[*self.carried, *new[0].leading_lines]),
+            if pending and new and hasattr(new[0], "leading_lines"):
+                new = [new[0].with_changes(leading_lines=[*pending, *new[0].leading_lines]),
                        *new[1:]]
-                self.carried = []
+            elif pending:
+                self.carried = [*pending, *self.carried]
             out.extend(new)
         self.sink_run = None
         if self.emit_code:

@@ -1419,7 +1419,9 @@ _TIMESTAMP_NAMES = {"day_name": "%A", "month_name": "%B"}
 
 # calls that apply the script's own function, ported as expressions: what the function is given
 _APPLIES = {"groupby.apply": "group", "series.apply": "value", "series.map": "value",
-            "frame.apply": "row"}
+            "frame.apply": "row", "series.rolling.apply": "window",
+            "series.expanding.apply": "window", "groupby.rolling.apply": "window",
+            "groupby.expanding.apply": "window"}
 
 # pandas functions of plain values too (pd.isna(3.0)): left as written without a column
 _VALUE_FUNCTIONS = frozenset({"pandas.isna", "pandas.isnull", "pandas.notna", "pandas.notnull"})

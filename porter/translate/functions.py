@@ -328,7 +328,8 @@ def _marked(stmt: cst.FunctionDef) -> bool:
 
 _APPLIED_AS = {"group": ("a pandas function of each group", "group_by().agg()", "expressions "),
                "value": ("a function of each value", "one expression", ""),
-               "row": ("a function of each row", "one expression", "")}
+               "row": ("a function of each row", "one expression", ""),
+               "window": ("a function of each window", "rolling expressions", "")}
 
 
 def removed_note(stmt: cst.FunctionDef, kinds: set[str] | None = None) -> list[cst.EmptyLine]:
