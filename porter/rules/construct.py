@@ -12,7 +12,7 @@ from __future__ import annotations
 
 import ast
 
-from dataclasses import replace
+from dataclasses import dataclass, replace
 import math
 from typing import Any
 
@@ -110,6 +110,8 @@ def _columns_from_records(records: list[dict[Any, Any]], ctx: RuleContext) -> di
 
 
 def literal_frame(call: PandasCall, ctx: RuleContext, data: Any) -> Frame:
+    ranges: dict[str, Code] = {}  # a date range's column -> its code (the name it is bound to)
+    single: set[str] = set()  # the columns given as one value, beside a date range
     labels = call.const("columns", 1, None, kinds=(list, tuple))
     if labels is not None:
         labels = _text_labels(list(labels), ctx)
@@ -117,7 +119,8 @@ def literal_frame(call: PandasCall, ctx: RuleContext, data: Any) -> Frame:
     number_labels: tuple[str, ...] = ()
     if isinstance(data, dict):
         _text_labels(list(data), ctx)
-        lengths = {len(v) for v in data.values() if isinstance(v, (list, tuple))}
+        lengths = {len(v) if isinstance(v, (list, tuple)) else v.size
+                   for v in data.values() if isinstance(v, (list, tuple, DateRange))}
         if len(lengths) > 1:
             raise ctx.todo("columns of different lengths (pandas raises)")
         if not lengths:
@@ -125,7 +128,13 @@ def literal_frame(call: PandasCall, ctx: RuleContext, data: Any) -> Frame:
         if any(isinstance(v, (dict, set)) for v in data.values()):
             raise ctx.todo("a column given as a dict or set")
         size = lengths.pop()
-        columns = {k: list(v) if isinstance(v, (list, tuple)) else [v] * size for k, v in data.items()}
+        for k, v in data.items():
+            if isinstance(v, DateRange):
+                ranges[k] = _named_range(call, k) or v.code
+        if ranges:  # one value beside pl.datetime_range: Polars broadcasts it, as pandas does
+            single = {k for k, v in data.items() if not isinstance(v, (list, tuple, DateRange))}
+        columns = {k: list(v) if isinstance(v, (list, tuple)) else v if isinstance(v, DateRange)
+                   else [v] * size for k, v in data.items()}
         if labels is not None:
             absent = [c for c in labels if c not in columns]
             if absent:
@@ -147,9 +156,14 @@ def literal_frame(call: PandasCall, ctx: RuleContext, data: Any) -> Frame:
     dtypes: dict[str, str] = {}
     overrides: dict[str, Code] = {}
     for name, values in columns.items():
+        if isinstance(values, DateRange):  # pl.datetime_range(...): Datetime("us") as in pandas
+            dtypes[name] = "datetime"
+            continue
         kind, polars = column_type(name, values, ctx)
         if kind is not None:
             dtypes[name] = kind
+        if name in single and kind == "int":
+            polars = "pl.Int64"  # Polars would make a single whole number Int32
         if polars is not None:
             overrides[name] = emit.atom(polars)
     options: dict[str, Any] = {}
@@ -158,13 +172,27 @@ def literal_frame(call: PandasCall, ctx: RuleContext, data: Any) -> Frame:
         options["schema"] = list(columns)
         options["orient"] = "row"
     else:
-        code_data = columns
+        code_data = {k: ranges[k] if k in ranges else v[0] if k in single else v
+                     for k, v in columns.items()}
     if overrides:
         options["schema_overrides"] = overrides
     if as_rows and len(data) > 100:
         options["infer_schema_length"] = None
     return Frame(emit.pl("LazyFrame", code_data, **options), columns=tuple(columns),
                  dtypes=tuple(dtypes.items()), number_labels=number_labels)
+
+
+def _named_range(call: PandasCall, key: str) -> Code | None:
+    """The name a date range of the frame's dict is read from (`{"day": days}`): the Polars
+    Series bound to it, rather than the range written again."""
+    data = call.first_node("data")
+    if isinstance(data, cst.Dict):
+        for element in data.elements:
+            if isinstance(element, cst.DictElement) and isinstance(element.value, cst.Name) \
+                    and isinstance(element.key, cst.SimpleString) \
+                    and element.key.evaluated_value == key:
+                return emit.atom(element.value.value)
+    return None
 
 
 @rule("pd.DataFrame")
@@ -357,3 +385,126 @@ def to_frame(call: PandasCall, ctx: RuleContext) -> Value:
     return Frame(handover.series_frame(column), columns=(*index, label), index=index,
                  dtypes=((label, column.dtype),) if column.dtype else (),
                  labels_intact=column.frame.labels_intact)
+
+
+@dataclass(frozen=True)
+class DateRange:
+    """The timestamps of a `pd.date_range(...)` written out in the script, read by pandas at
+    convert time: `code` is the Polars Series of them (`pl.datetime_range(..., eager=True)`),
+    checked to hold the same values. It is the constant of the call's value, so that a frame
+    written out around it (`pd.DataFrame({"day": pd.date_range(...)})`) is a literal frame;
+    anywhere else the call stays pandas' as written. It has no literal text (repr raises): a
+    rule that would write it out as a Python value fails, and keeps its call on pandas."""
+
+    code: Code
+    size: int
+
+    def __repr__(self) -> str:
+        raise TypeError("a pd.date_range has no literal form")
+
+
+def _frame_columns_only(module: object, text: str) -> bool:
+    """Whether each `pd.date_range(...)` written as `text` in the script is a column of a frame
+    written out (`pd.DataFrame({"day": <it>})`), itself or through a name that is read only
+    there (`days = pd.date_range(...)`, then `pd.DataFrame({"day": days})`)."""
+    if not isinstance(module, ast.Module):
+        return False
+    try:
+        wanted = ast.unparse(ast.parse(text.strip(), mode="eval").body)
+    except SyntaxError:
+        return False
+    columns: set[int] = set()  # the ids of the dict values of pd.DataFrame({...}) calls
+    for node in ast.walk(module):
+        if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
+                and node.func.attr == "DataFrame":
+            data = node.args[0] if node.args else next(
+                (k.value for k in node.keywords if k.arg == "data"), None)
+            if isinstance(data, ast.Dict):
+                columns.update(id(v) for v in data.values)
+    names: set[str] = set()  # names bound to the range
+    uses = 0
+    for node in ast.walk(module):
+        if isinstance(node, ast.Assign) and len(node.targets) == 1 \
+                and isinstance(node.targets[0], ast.Name) and ast.unparse(node.value) == wanted:
+            names.add(node.targets[0].id)
+    for node in ast.walk(module):
+        if isinstance(node, ast.Call) and ast.unparse(node) == wanted:
+            uses += 1
+            bound = any(isinstance(a, ast.Assign) and a.value is node and len(a.targets) == 1
+                        and isinstance(a.targets[0], ast.Name) and a.targets[0].id in names
+                        for a in ast.walk(module))
+            if id(node) not in columns and not bound:
+                return False
+        if isinstance(node, ast.Name) and node.id in names and isinstance(node.ctx, ast.Load) \
+                and id(node) not in columns:
+            return False
+    return uses > 0
+
+
+# pandas' fixed frequencies (Day, Hour, Minute, ...) as Polars intervals, largest unit first
+_INTERVALS = (("d", 86_400_000_000_000), ("h", 3_600_000_000_000), ("m", 60_000_000_000),
+              ("s", 1_000_000_000), ("ms", 1_000_000), ("us", 1_000))
+
+
+def _datetime_code(stamp: Any) -> Code:
+    parts = [stamp.year, stamp.month, stamp.day, stamp.hour, stamp.minute, stamp.second,
+             stamp.microsecond]
+    while len(parts) > 3 and parts[-1] == 0:
+        parts.pop()
+    return emit.pl("datetime", *parts)
+
+
+@rule("pd.date_range")
+def date_range(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.date_range(start, end / periods, freq) -> pl.datetime_range(first, last, interval,
+    eager=True), a column of a frame written out (`pd.DataFrame({"day": ...})`).
+
+    Handles: dates and times as text (read by pandas itself at convert time), two of start /
+    end / periods, a fixed frequency ("D", "2D", "h", "15min", "s", ...); the values are
+    datetime64[us] in pandas 3 and Datetime("us") in Polars, checked equal at convert time.
+    Caveats: anchored frequencies (W, MS, ME, B, ...), a time zone, normalize=, inclusive=,
+    unit= and name= are TODOs; anywhere but inside pd.DataFrame the call stays pandas'.
+    """
+    ctx.reject_unknown(call, "start", "end", "periods", "freq", positional=4)
+    assert call.node is not None
+    original = Code(cst.Module([]).code_for_node(call.node))
+    if not _frame_columns_only(ctx.python_module, original.text):
+        raise ctx.todo("porter ports a date range as a column of a frame written out "
+                       "(pd.DataFrame({\"day\": pd.date_range(...)})); here pandas' "
+                       "DatetimeIndex is used otherwise")
+    start = call.const("start", 0, None, kinds=(str,))
+    end = call.const("end", 1, None, kinds=(str,))
+    periods = call.const("periods", 2, None, kinds=(int,))
+    freq = call.const("freq", 3, "D", kinds=(str,))
+    if isinstance(periods, bool) or (start, end, periods).count(None) != 1:
+        raise ctx.todo("exactly two of start, end and periods are ported")
+    import warnings
+    import pandas as pd
+    import polars as pl
+    try:
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            stamps = pd.date_range(start, end, periods, freq)
+    except (ValueError, TypeError, OverflowError) as error:
+        raise ctx.todo(f"pandas raises here ({error})") from None
+    try:  # a fixed step (pandas 3's Day is a calendar day: 24 hours without a time zone)
+        step = stamps.freq.nanos if stamps.freq is not None else None
+    except ValueError:  # "<Week: weekday=6> is a non-fixed frequency"
+        step = None
+    if step is None or step <= 0:
+        raise ctx.todo(f"freq={freq!r} is anchored to a calendar (week, month, business "
+                       "day): porter ports fixed steps (D, h, min, s, ...)")
+    if stamps.tz is not None or str(stamps.dtype) != "datetime64[us]":
+        raise ctx.todo("a time zone, or a unit other than microseconds")
+    if len(stamps) == 0:
+        raise ctx.todo("an empty range")
+    if len(stamps) > 1_000_000:
+        raise ctx.todo("over a million timestamps")
+    unit, size = next((u, s) for u, s in _INTERVALS if step % s == 0)
+    code = emit.pl("datetime_range", _datetime_code(stamps[0]), _datetime_code(stamps[-1]),
+                   f"{step // size}{unit}", eager=True)
+    made = pl.datetime_range(stamps[0].to_pydatetime(), stamps[-1].to_pydatetime(),
+                             f"{step // size}{unit}", eager=True)
+    if made.dtype != pl.Datetime("us") or made.to_list() != list(stamps.to_pydatetime()):
+        raise ctx.todo("Polars' range differs from pandas' here")  # checked, never assumed
+    return Opaque(code, const=DateRange(code, len(stamps)))
