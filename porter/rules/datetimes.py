@@ -288,9 +288,11 @@ def to_period(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: D, h, min, W / W-SUN, M, Q / Q-DEC, Y / Y-DEC; astype(str) writes them as pandas
     does ("2024-03", "2024Q1", "2024-03-04/2024-03-10"), a missing value stays missing;
-    dt.to_timestamp() and dt.start_time give each period's first instant.
-    Caveats: other frequencies, and the periods used any other way (grouped, compared,
-    printed), stay pandas.
+    dt.to_timestamp() and dt.start_time give each period's first instant; put into the frame
+    of its timestamps, the column holds the periods' text (Periods.aligned_in), which groups,
+    sorts, writes and prints as pandas' periods do (dtypes: period[M]).
+    Caveats: other frequencies, and the periods used any other way (compared, added to, their
+    .dt accessor, kept in a name) stay pandas.
     """
     column = accessor_column(call)
     ctx.reject_unknown(call, "freq", positional=1)
