@@ -77,6 +77,13 @@ def test_date_range_frames_merge_as_in_pandas(body, crossings):
     assert "pd.date_range" not in result.converted_text
 
 
+def test_an_inline_range_is_reported_where_it_is_written(crossings):
+    result = convert(HEAD + 'days = pd.DataFrame({"day": pd.date_range("2024-02-26", periods=3),\n'
+                            '                     "n": 0})\n', data_dir=str(crossings))
+    sites = [s for s in result.sites if s.key == "pd.date_range"]
+    assert [(s.status, s.line) for s in sites] == [("converted", 5)], result.sites
+
+
 def test_date_range_frame_writes_pandas_text(crossings):
     """The calendar written to CSV: midnight timestamps as dates, as pandas writes them."""
     source = HEAD + (
@@ -109,6 +116,8 @@ def test_date_range_frame_writes_pandas_text(crossings):
      'days = pd.DataFrame({"day": rng})\nn = len(rng)',
      "used otherwise"),
     ('log["slot"] = pd.date_range("2024-02-26", periods=7, freq="h")',
+     "used otherwise"),
+    ('days = pd.DataFrame({"day": pd.date_range("2024-02-26", periods=3)}, index=[5, 6, 7])',
      "used otherwise"),
 ])
 def test_date_ranges_porter_does_not_port_stay_todos(body, reason, crossings):

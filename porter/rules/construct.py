@@ -20,6 +20,7 @@ import libcst as cst
 
 from porter.emit import code as emit
 from porter.emit.code import Code
+from porter.model import SiteDraft
 from porter.rules import rule
 from porter.translate.context import MIXED_COLUMN, PandasCall, RuleContext
 from porter.translate import handover
@@ -215,7 +216,15 @@ def data_frame(call: PandasCall, ctx: RuleContext) -> Value:
     if data is None:
         raise ctx.todo("an empty DataFrame has no schema to build lazily")
     if isinstance(data, Opaque) and data.is_const:
-        return literal_frame(call, ctx, data.const)
+        frame = literal_frame(call, ctx, data.const)
+        # a date range written inside the dict: its site, which the dict's constant does not
+        # carry (one bound to a name has its own, where it is bound)
+        inline = [v for k, v in data.const.items() if isinstance(v, DateRange)
+                  and _named_range(call, k) is None] if isinstance(data.const, dict) else []
+        return frame.with_sites(*(SiteDraft(
+            "pd.date_range", "date-range", "converted", 1.0,
+            "a column of a frame written out: the same timestamps as pandas, checked when "
+            "porter converted the script", *v.lines) for v in inline))
     if isinstance(data, Opaque) and ".to_pandas()" in data.code.text:
         # values porter already handed to pandas (an earlier run's output): as on that run
         raise ctx.todo("building a frame from another pandas object")
@@ -398,47 +407,51 @@ class DateRange:
 
     code: Code
     size: int
+    lines: tuple[int, int] = (0, 0)  # where the call is written (its site, when inline)
 
     def __repr__(self) -> str:
         raise TypeError("a pd.date_range has no literal form")
 
 
-def _frame_columns_only(module: object, text: str) -> bool:
+def _frame_columns_only(module: object, text: str) -> tuple[int, int] | None:
     """Whether each `pd.date_range(...)` written as `text` in the script is a column of a frame
     written out (`pd.DataFrame({"day": <it>})`), itself or through a name that is read only
-    there (`days = pd.date_range(...)`, then `pd.DataFrame({"day": days})`)."""
+    there (`days = pd.date_range(...)`, then `pd.DataFrame({"day": days})`), in a call given
+    nothing but the data and columns=: the lines of the first such call, or None."""
     if not isinstance(module, ast.Module):
-        return False
+        return None
     try:
         wanted = ast.unparse(ast.parse(text.strip(), mode="eval").body)
     except SyntaxError:
-        return False
+        return None
     columns: set[int] = set()  # the ids of the dict values of pd.DataFrame({...}) calls
     for node in ast.walk(module):
         if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
                 and node.func.attr == "DataFrame":
             data = node.args[0] if node.args else next(
                 (k.value for k in node.keywords if k.arg == "data"), None)
-            if isinstance(data, ast.Dict):
+            plain = len(node.args) <= 2 and all(k.arg in ("data", "columns") for k in node.keywords)
+            if isinstance(data, ast.Dict) and plain:
                 columns.update(id(v) for v in data.values)
     names: set[str] = set()  # names bound to the range
-    uses = 0
+    lines: tuple[int, int] | None = None
     for node in ast.walk(module):
         if isinstance(node, ast.Assign) and len(node.targets) == 1 \
                 and isinstance(node.targets[0], ast.Name) and ast.unparse(node.value) == wanted:
             names.add(node.targets[0].id)
     for node in ast.walk(module):
         if isinstance(node, ast.Call) and ast.unparse(node) == wanted:
-            uses += 1
+            if lines is None:
+                lines = (node.lineno, node.end_lineno or node.lineno)
             bound = any(isinstance(a, ast.Assign) and a.value is node and len(a.targets) == 1
                         and isinstance(a.targets[0], ast.Name) and a.targets[0].id in names
                         for a in ast.walk(module))
             if id(node) not in columns and not bound:
-                return False
+                return None
         if isinstance(node, ast.Name) and node.id in names and isinstance(node.ctx, ast.Load) \
                 and id(node) not in columns:
-            return False
-    return uses > 0
+            return None
+    return lines
 
 
 # pandas' fixed frequencies (Day, Hour, Minute, ...) as Polars intervals, largest unit first
@@ -463,12 +476,14 @@ def date_range(call: PandasCall, ctx: RuleContext) -> Value:
     end / periods, a fixed frequency ("D", "2D", "h", "15min", "s", ...); the values are
     datetime64[us] in pandas 3 and Datetime("us") in Polars, checked equal at convert time.
     Caveats: anchored frequencies (W, MS, ME, B, ...), a time zone, normalize=, inclusive=,
-    unit= and name= are TODOs; anywhere but inside pd.DataFrame the call stays pandas'.
+    unit= and name= are TODOs, and so is a range used otherwise (len(), isin, a column set
+    with df["c"] = ..., pd.DataFrame with index= or dtype=): pandas' DatetimeIndex.
     """
     ctx.reject_unknown(call, "start", "end", "periods", "freq", positional=4)
     assert call.node is not None
     original = Code(cst.Module([]).code_for_node(call.node))
-    if not _frame_columns_only(ctx.python_module, original.text):
+    lines = _frame_columns_only(ctx.python_module, original.text)
+    if lines is None:
         raise ctx.todo("porter ports a date range as a column of a frame written out "
                        "(pd.DataFrame({\"day\": pd.date_range(...)})); here pandas' "
                        "DatetimeIndex is used otherwise")
@@ -507,4 +522,4 @@ def date_range(call: PandasCall, ctx: RuleContext) -> Value:
                              f"{step // size}{unit}", eager=True)
     if made.dtype != pl.Datetime("us") or made.to_list() != list(stamps.to_pydatetime()):
         raise ctx.todo("Polars' range differs from pandas' here")  # checked, never assumed
-    return Opaque(code, const=DateRange(code, len(stamps)))
+    return Opaque(code, const=DateRange(code, len(stamps), lines))

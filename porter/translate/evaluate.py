@@ -280,7 +280,6 @@ class Evaluator:
 
     def _eval_Dict(self, node: cst.Dict) -> Value:
         items: dict[Any, Any] = {}
-        sites: list[SiteDraft] = []
         for element in node.elements:
             if not isinstance(element, cst.DictElement):
                 return self.generic(node)
@@ -289,8 +288,7 @@ class Evaluator:
                     and value.is_const):
                 return self.generic(node)
             items[key.const] = value.const
-            sites += [*key.sites, *value.sites]  # a call ported to a constant (pd.date_range)
-        return self.opaque(node, items).with_sites(*sites)
+        return self.opaque(node, items)
 
     def _eval_Lambda(self, node: cst.Lambda) -> Value:
         return self.opaque(node)
