@@ -116,3 +116,15 @@ def test_a_function_whose_body_makes_nullable_integers_is_not_assumed_plain(tmp_
     (tmp_path / "sales.csv").write_text(SALES["sales.csv"])
     result = convert(source, data_dir=str(tmp_path))
     assert "TODO(porter): frame.dtypes" in result.converted_text, result.converted_text
+
+
+def test_an_outer_merge_on_periods_puts_the_missing_period_first(tmp_path: Path):
+    """pandas sorts NaT first in an outer merge (the smallest int64 inside), as for dates."""
+    result = same_text(HEAD + (
+        'sales["month"] = sales["sold"].dt.to_period("M")\n'
+        'per = sales.groupby("month", as_index=False)["party"].sum()\n'
+        'per = per[per["party"] > 2]\n'
+        'both = sales[["month", "desk"]].merge(per, on="month", how="outer")\n'
+        'both.to_csv("both.csv", index=False)\n'
+    ), tmp_path, SALES)
+    assert not result.todos, result.converted_text

@@ -492,15 +492,17 @@ def _right_join_order(code: Code, lside: _Side, rside: _Side, columns: tuple[str
     return code.method("select", *columns)
 
 
-# pandas sorts a missing timestamp or duration (NaT, the smallest int64 inside) before every
-# other key, and a missing number or text after them
+# pandas sorts a missing timestamp, duration or period (NaT, the smallest int64 inside) before
+# every other key, and a missing number or text after them
 _NAT_KEYS = ("datetime", "duration")
 
 
 def _nulls_last(lside: _Side, rside: _Side) -> bool | list[bool]:
     """Polars' nulls_last= for the sort of an outer or sort=True merge, key by key as pandas
     places the missing keys: first for timestamps and durations, last otherwise."""
-    last = [lside.dtypes.get(a) not in _NAT_KEYS and rside.dtypes.get(b) not in _NAT_KEYS
+    def nat(kind: str | None) -> bool:  # periods kept as their text (to_period) too
+        return kind in _NAT_KEYS or kind is not None and kind.startswith("period[")
+    last = [not nat(lside.dtypes.get(a)) and not nat(rside.dtypes.get(b))
             for a, b in zip(lside.keys, rside.keys)]
     if all(last):
         return True
