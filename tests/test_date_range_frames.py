@@ -117,6 +117,8 @@ def test_date_range_frame_writes_pandas_text(crossings):
      "used otherwise"),
     ('log["slot"] = pd.date_range("2024-02-26", periods=7, freq="h")',
      "used otherwise"),
+    ('days = pd.DataFrame({"t": pd.date_range("1900-01-01", "2100-01-01", freq="s")})',
+     "over 1,000,000 timestamps"),
     ('days = pd.DataFrame({"day": pd.date_range("2024-02-26", periods=3)}, index=[5, 6, 7])',
      "used otherwise"),
 ])
