@@ -12,7 +12,7 @@ from __future__ import annotations
 
 import ast
 
-from dataclasses import replace
+from dataclasses import dataclass, replace
 import math
 from typing import Any
 
@@ -20,6 +20,7 @@ import libcst as cst
 
 from porter.emit import code as emit
 from porter.emit.code import Code
+from porter.model import SiteDraft
 from porter.rules import rule
 from porter.translate.context import MIXED_COLUMN, PandasCall, RuleContext
 from porter.translate import handover
@@ -110,6 +111,8 @@ def _columns_from_records(records: list[dict[Any, Any]], ctx: RuleContext) -> di
 
 
 def literal_frame(call: PandasCall, ctx: RuleContext, data: Any) -> Frame:
+    ranges: dict[str, Code] = {}  # a date range's column -> its code (the name it is bound to)
+    single: set[str] = set()  # the columns given as one value, beside a date range
     labels = call.const("columns", 1, None, kinds=(list, tuple))
     if labels is not None:
         labels = _text_labels(list(labels), ctx)
@@ -117,7 +120,8 @@ def literal_frame(call: PandasCall, ctx: RuleContext, data: Any) -> Frame:
     number_labels: tuple[str, ...] = ()
     if isinstance(data, dict):
         _text_labels(list(data), ctx)
-        lengths = {len(v) for v in data.values() if isinstance(v, (list, tuple))}
+        lengths = {len(v) if isinstance(v, (list, tuple)) else v.size
+                   for v in data.values() if isinstance(v, (list, tuple, DateRange))}
         if len(lengths) > 1:
             raise ctx.todo("columns of different lengths (pandas raises)")
         if not lengths:
@@ -125,7 +129,13 @@ def literal_frame(call: PandasCall, ctx: RuleContext, data: Any) -> Frame:
         if any(isinstance(v, (dict, set)) for v in data.values()):
             raise ctx.todo("a column given as a dict or set")
         size = lengths.pop()
-        columns = {k: list(v) if isinstance(v, (list, tuple)) else [v] * size for k, v in data.items()}
+        for k, v in data.items():
+            if isinstance(v, DateRange):
+                ranges[k] = _named_range(call, k) or v.code
+        if ranges:  # one value beside pl.datetime_range: Polars broadcasts it, as pandas does
+            single = {k for k, v in data.items() if not isinstance(v, (list, tuple, DateRange))}
+        columns = {k: list(v) if isinstance(v, (list, tuple)) else v if isinstance(v, DateRange)
+                   else [v] * size for k, v in data.items()}
         if labels is not None:
             absent = [c for c in labels if c not in columns]
             if absent:
@@ -147,9 +157,14 @@ def literal_frame(call: PandasCall, ctx: RuleContext, data: Any) -> Frame:
     dtypes: dict[str, str] = {}
     overrides: dict[str, Code] = {}
     for name, values in columns.items():
+        if isinstance(values, DateRange):  # pl.datetime_range(...): Datetime("us") as in pandas
+            dtypes[name] = "datetime"
+            continue
         kind, polars = column_type(name, values, ctx)
         if kind is not None:
             dtypes[name] = kind
+        if name in single and kind == "int":
+            polars = "pl.Int64"  # Polars would make a single whole number Int32
         if polars is not None:
             overrides[name] = emit.atom(polars)
     options: dict[str, Any] = {}
@@ -158,13 +173,27 @@ def literal_frame(call: PandasCall, ctx: RuleContext, data: Any) -> Frame:
         options["schema"] = list(columns)
         options["orient"] = "row"
     else:
-        code_data = columns
+        code_data = {k: ranges[k] if k in ranges else v[0] if k in single else v
+                     for k, v in columns.items()}
     if overrides:
         options["schema_overrides"] = overrides
     if as_rows and len(data) > 100:
         options["infer_schema_length"] = None
     return Frame(emit.pl("LazyFrame", code_data, **options), columns=tuple(columns),
                  dtypes=tuple(dtypes.items()), number_labels=number_labels)
+
+
+def _named_range(call: PandasCall, key: str) -> Code | None:
+    """The name a date range of the frame's dict is read from (`{"day": days}`): the Polars
+    Series bound to it, rather than the range written again."""
+    data = call.first_node("data")
+    if isinstance(data, cst.Dict):
+        for element in data.elements:
+            if isinstance(element, cst.DictElement) and isinstance(element.value, cst.Name) \
+                    and isinstance(element.key, cst.SimpleString) \
+                    and element.key.evaluated_value == key:
+                return emit.atom(element.value.value)
+    return None
 
 
 @rule("pd.DataFrame")
@@ -187,7 +216,15 @@ def data_frame(call: PandasCall, ctx: RuleContext) -> Value:
     if data is None:
         raise ctx.todo("an empty DataFrame has no schema to build lazily")
     if isinstance(data, Opaque) and data.is_const:
-        return literal_frame(call, ctx, data.const)
+        frame = literal_frame(call, ctx, data.const)
+        # a date range written inside the dict: its site, which the dict's constant does not
+        # carry (one bound to a name has its own, where it is bound)
+        inline = [v for k, v in data.const.items() if isinstance(v, DateRange)
+                  and _named_range(call, k) is None] if isinstance(data.const, dict) else []
+        return frame.with_sites(*(SiteDraft(
+            "pd.date_range", "date-range", "converted", 1.0,
+            "a column of a frame written out: the same timestamps as pandas, checked when "
+            "porter converted the script", *v.lines) for v in inline))
     if isinstance(data, Opaque) and ".to_pandas()" in data.code.text:
         # values porter already handed to pandas (an earlier run's output): as on that run
         raise ctx.todo("building a frame from another pandas object")
@@ -357,3 +394,139 @@ def to_frame(call: PandasCall, ctx: RuleContext) -> Value:
     return Frame(handover.series_frame(column), columns=(*index, label), index=index,
                  dtypes=((label, column.dtype),) if column.dtype else (),
                  labels_intact=column.frame.labels_intact)
+
+
+@dataclass(frozen=True)
+class DateRange:
+    """The timestamps of a `pd.date_range(...)` written out in the script, read by pandas at
+    convert time: `code` is the Polars Series of them (`pl.datetime_range(..., eager=True)`),
+    checked to hold the same values. It is the constant of the call's value, so that a frame
+    written out around it (`pd.DataFrame({"day": pd.date_range(...)})`) is a literal frame;
+    anywhere else the call stays pandas' as written. It has no literal text (repr raises): a
+    rule that would write it out as a Python value fails, and keeps its call on pandas."""
+
+    code: Code
+    size: int
+    lines: tuple[int, int] = (0, 0)  # where the call is written (its site, when inline)
+
+    def __repr__(self) -> str:
+        raise TypeError("a pd.date_range has no literal form")
+
+
+def _frame_columns_only(module: object, text: str) -> tuple[int, int] | None:
+    """Whether each `pd.date_range(...)` written as `text` in the script is a column of a frame
+    written out (`pd.DataFrame({"day": <it>})`), itself or through a name that is read only
+    there (`days = pd.date_range(...)`, then `pd.DataFrame({"day": days})`), in a call given
+    nothing but the data and columns=: the lines of the first such call, or None."""
+    if not isinstance(module, ast.Module):
+        return None
+    try:
+        wanted = ast.unparse(ast.parse(text.strip(), mode="eval").body)
+    except SyntaxError:
+        return None
+    columns: set[int] = set()  # the ids of the dict values of pd.DataFrame({...}) calls
+    for node in ast.walk(module):
+        if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
+                and node.func.attr == "DataFrame":
+            data = node.args[0] if node.args else next(
+                (k.value for k in node.keywords if k.arg == "data"), None)
+            plain = len(node.args) <= 2 and all(k.arg in ("data", "columns") for k in node.keywords)
+            if isinstance(data, ast.Dict) and plain:
+                columns.update(id(v) for v in data.values)
+    names: set[str] = set()  # names bound to the range
+    lines: tuple[int, int] | None = None
+    for node in ast.walk(module):
+        if isinstance(node, ast.Assign) and len(node.targets) == 1 \
+                and isinstance(node.targets[0], ast.Name) and ast.unparse(node.value) == wanted:
+            names.add(node.targets[0].id)
+    for node in ast.walk(module):
+        if isinstance(node, ast.Call) and ast.unparse(node) == wanted:
+            if lines is None:
+                lines = (node.lineno, node.end_lineno or node.lineno)
+            bound = any(isinstance(a, ast.Assign) and a.value is node and len(a.targets) == 1
+                        and isinstance(a.targets[0], ast.Name) and a.targets[0].id in names
+                        for a in ast.walk(module))
+            if id(node) not in columns and not bound:
+                return None
+        if isinstance(node, ast.Name) and node.id in names and isinstance(node.ctx, ast.Load) \
+                and id(node) not in columns:
+            return None
+    return lines
+
+
+_MOST_STAMPS = 1_000_000  # a longer range is made by pandas at run time (a TODO), not here
+
+# pandas' fixed frequencies (Day, Hour, Minute, ...) as Polars intervals, largest unit first
+_INTERVALS = (("d", 86_400_000_000_000), ("h", 3_600_000_000_000), ("m", 60_000_000_000),
+              ("s", 1_000_000_000), ("ms", 1_000_000), ("us", 1_000))
+
+
+def _datetime_code(stamp: Any) -> Code:
+    parts = [stamp.year, stamp.month, stamp.day, stamp.hour, stamp.minute, stamp.second,
+             stamp.microsecond]
+    while len(parts) > 3 and parts[-1] == 0:
+        parts.pop()
+    return emit.pl("datetime", *parts)
+
+
+@rule("pd.date_range")
+def date_range(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.date_range(start, end / periods, freq) -> pl.datetime_range(first, last, interval,
+    eager=True), a column of a frame written out (`pd.DataFrame({"day": ...})`).
+
+    Handles: dates and times as text (read by pandas itself at convert time), two of start /
+    end / periods, a fixed frequency ("D", "2D", "h", "15min", "s", ...); the values are
+    datetime64[us] in pandas 3 and Datetime("us") in Polars, checked equal at convert time.
+    Caveats: anchored frequencies (W, MS, ME, B, ...), a time zone, normalize=, inclusive=,
+    unit= and name= are TODOs, and so is a range used otherwise (len(), isin, a column set
+    with df["c"] = ..., pd.DataFrame with index= or dtype=): pandas' DatetimeIndex.
+    """
+    ctx.reject_unknown(call, "start", "end", "periods", "freq", positional=4)
+    assert call.node is not None
+    original = Code(cst.Module([]).code_for_node(call.node))
+    lines = _frame_columns_only(ctx.python_module, original.text)
+    if lines is None:
+        raise ctx.todo("porter ports a date range as a column of a frame written out "
+                       "(pd.DataFrame({\"day\": pd.date_range(...)})); here pandas' "
+                       "DatetimeIndex is used otherwise")
+    start = call.const("start", 0, None, kinds=(str,))
+    end = call.const("end", 1, None, kinds=(str,))
+    periods = call.const("periods", 2, None, kinds=(int,))
+    freq = call.const("freq", 3, "D", kinds=(str,))
+    if isinstance(periods, bool) or (start, end, periods).count(None) != 1:
+        raise ctx.todo("exactly two of start, end and periods are ported")
+    import warnings
+    import pandas as pd
+    import polars as pl
+    try:
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            # how many timestamps, before pandas makes them (a year of seconds is 31 million)
+            step = pd.tseries.frequencies.to_offset(freq)
+            count = periods if periods is not None else \
+                (pd.Timestamp(end) - pd.Timestamp(start)) // pd.Timedelta(step.nanos, "ns") + 1
+            if count > _MOST_STAMPS:
+                raise ctx.todo(f"over {_MOST_STAMPS:,} timestamps")
+            stamps = pd.date_range(start, end, periods, freq)
+    except (ValueError, TypeError, OverflowError) as error:
+        # (an anchored frequency has no fixed step: pandas says so, and porter ports none)
+        raise ctx.todo(f"pandas raises here, or the step is not fixed ({error})") from None
+    try:  # a fixed step (pandas 3's Day is a calendar day: 24 hours without a time zone)
+        step = stamps.freq.nanos if stamps.freq is not None else None
+    except ValueError:  # "<Week: weekday=6> is a non-fixed frequency"
+        step = None
+    if step is None or step <= 0:
+        raise ctx.todo(f"freq={freq!r} is anchored to a calendar (week, month, business "
+                       "day): porter ports fixed steps (D, h, min, s, ...)")
+    if stamps.tz is not None or str(stamps.dtype) != "datetime64[us]":
+        raise ctx.todo("a time zone, or a unit other than microseconds")
+    if len(stamps) == 0:
+        raise ctx.todo("an empty range")
+    unit, size = next((u, s) for u, s in _INTERVALS if step % s == 0)
+    code = emit.pl("datetime_range", _datetime_code(stamps[0]), _datetime_code(stamps[-1]),
+                   f"{step // size}{unit}", eager=True)
+    made = pl.datetime_range(stamps[0].to_pydatetime(), stamps[-1].to_pydatetime(),
+                             f"{step // size}{unit}", eager=True)
+    if made.dtype != pl.Datetime("us") or made.to_list() != list(stamps.to_pydatetime()):
+        raise ctx.todo("Polars' range differs from pandas' here")  # checked, never assumed
+    return Opaque(code, const=DateRange(code, len(stamps), lines))

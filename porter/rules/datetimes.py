@@ -13,10 +13,12 @@ import re
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.translate.context import PandasCall, RuleContext, derived_column
+from porter.translate.context import PandasCall, RuleContext, Unsupported, derived_column
 from porter.translate.context import accessor_column as _accessor_column
 from porter.translate import handover
-from porter.translate.values import Accessor, Column, Opaque, Scalar, Value, fresh_token
+from porter.translate.values import (
+    NOT_NULLABLE, Accessor, Column, Opaque, Scalar, Value, fresh_token,
+)
 
 
 def accessor_column(call: PandasCall) -> Column:
@@ -26,6 +28,9 @@ def accessor_column(call: PandasCall) -> Column:
     key it replaces (handed to pandas it would be looked up under the key's name, which the
     new values took)."""
     column = _accessor_column(call)
+    if column.dtype is not None and column.dtype.startswith("period["):
+        # periods kept in a frame as their text (Periods.aligned_in): pandas' own accessor
+        raise Unsupported("a column of periods, held as their text: its .dt stays pandas")
     accessor = call.receiver
     if isinstance(accessor, Accessor) and accessor.index_of is not None and column.frame.index:
         return replace(column, frame=replace(column.frame, index=()))
@@ -239,6 +244,16 @@ class Periods(Column):
     start: Column = field(kw_only=True)  # each period's first instant
     pandas: Code = field(kw_only=True)
     key_prefix: str = field(default="series.periods", kw_only=True)
+    kind: str | None = field(default=None, kw_only=True)  # pandas' dtype name: "period[M]"
+
+    def aligned_in(self, frame: Frame) -> Column | None:
+        """Put into the frame of its timestamps (`df["m"] = df["d"].dt.to_period("M")`): the
+        column holds the periods' text, which orders as the periods do and is what pandas
+        writes (to_csv, astype(str)); a missing period stays missing. Its dtype is pandas'
+        name ("period[M]"): a hand-over to pandas makes the periods again from the text."""
+        if self.text.frame.rows != frame.rows or self.kind is None:
+            return None
+        return replace(self.text, dtype=self.kind, nullable_int=NOT_NULLABLE)
 
 
 def _week_text(time: Code) -> Code:
@@ -261,6 +276,10 @@ _PERIODS = {
     "Y": ("1y", lambda t: t.attr("dt").method("to_string", "%Y")),
 }
 _PERIODS["Q-DEC"], _PERIODS["Y-DEC"] = _PERIODS["Q"], _PERIODS["Y"]
+# pandas' dtype of the periods of each frequency
+_PERIOD_DTYPES = {"D": "period[D]", "h": "period[h]", "min": "period[min]", "W": "period[W-SUN]",
+                  "W-SUN": "period[W-SUN]", "M": "period[M]", "Q": "period[Q-DEC]",
+                  "Q-DEC": "period[Q-DEC]", "Y": "period[Y-DEC]", "Y-DEC": "period[Y-DEC]"}
 
 
 @rule("series.dt.to_period")
@@ -269,9 +288,11 @@ def to_period(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: D, h, min, W / W-SUN, M, Q / Q-DEC, Y / Y-DEC; astype(str) writes them as pandas
     does ("2024-03", "2024Q1", "2024-03-04/2024-03-10"), a missing value stays missing;
-    dt.to_timestamp() and dt.start_time give each period's first instant.
-    Caveats: other frequencies, and the periods used any other way (grouped, compared,
-    printed), stay pandas.
+    dt.to_timestamp() and dt.start_time give each period's first instant; put into the frame
+    of its timestamps, the column holds the periods' text (Periods.aligned_in), which groups,
+    sorts, writes and prints as pandas' periods do (dtypes: period[M]).
+    Caveats: other frequencies, and the periods used any other way (compared, added to, their
+    .dt accessor, kept in a name) stay pandas.
     """
     column = accessor_column(call)
     ctx.reject_unknown(call, "freq", positional=1)
@@ -288,7 +309,8 @@ def to_period(call: PandasCall, ctx: RuleContext) -> Value:
     pandas = handover.to_pandas(column).attr("dt").method("to_period", freq)
     frame = replace(column.frame, rows=fresh_token())  # Period values are not an expression
     return Periods(text.code, frame=frame, name=column.name, dtype=None, text=text,
-                   start=_result(column, start, "datetime"), pandas=pandas)
+                   start=_result(column, start, "datetime"), pandas=pandas,
+                   kind=_PERIOD_DTYPES[freq])
 
 
 @rule("series.periods.astype")

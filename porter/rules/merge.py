@@ -32,8 +32,8 @@ def frame_merge(call: PandasCall, ctx: RuleContext) -> Value:
     """df.merge(right, how, on, ...) -> .join(right, ..., nulls_equal=True, maintain_order=...).
 
     Handles: pandas' row order for every `how` (left_right, right_left for a right join);
-    outer joins coalesce their keys and sort by them with missing keys last; missing keys
-    match each other (nulls_equal=True); left_on/right_on keep both key columns; suffixes
+    outer joins coalesce their keys and sort by them with missing keys last (first for
+    timestamps and durations: pandas' NaT); missing keys match each other (nulls_equal=True); left_on/right_on keep both key columns; suffixes
     applied to both sides when the columns are known; pandas' column order after a right
     join; sort=True; an int key joined to a float key (cast when the types are known); keys
     that are the index of a grouped frame.
@@ -168,7 +168,7 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
         code = _right_join_order(code, lside, rside, columns, suffix or "_right")
     if how == "outer" or (args.const("sort", None, False) and how != "cross"):
         code = code.method("sort", _sort_keys(how, lside, rside, coalesced),
-                           nulls_last=True, maintain_order=True)
+                           nulls_last=_nulls_last(lside, rside), maintain_order=True)
     # pandas' key column keeps the int type of the left key after a left or inner merge on
     # one name; with left_on/right_on each key column keeps its own type where the join
     # leaves it no missing value: the cast to Float64 (for the join) is undone there
@@ -490,6 +490,23 @@ def _right_join_order(code: Code, lside: _Side, rside: _Side, columns: tuple[str
     if (*left_values, *(rside.columns or ())) == columns:
         return code
     return code.method("select", *columns)
+
+
+# pandas sorts a missing timestamp, duration or period (NaT, the smallest int64 inside) before
+# every other key, and a missing number or text after them
+_NAT_KEYS = ("datetime", "duration")
+
+
+def _nulls_last(lside: _Side, rside: _Side) -> bool | list[bool]:
+    """Polars' nulls_last= for the sort of an outer or sort=True merge, key by key as pandas
+    places the missing keys: first for timestamps and durations, last otherwise."""
+    def nat(kind: str | None) -> bool:  # periods kept as their text (to_period) too
+        return kind in _NAT_KEYS or kind is not None and kind.startswith("period[")
+    last = [not nat(lside.dtypes.get(a)) and not nat(rside.dtypes.get(b))
+            for a, b in zip(lside.keys, rside.keys)]
+    if all(last):
+        return True
+    return last[0] if len(last) == 1 else last
 
 
 def _sort_keys(how: str, lside: _Side, rside: _Side, coalesced: bool) -> object:

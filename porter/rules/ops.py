@@ -31,6 +31,11 @@ NUMERIC = {"int", "float"}
 
 
 def base_column(*values: Value) -> Column:
+    if any(isinstance(v, Column) and v.dtype is not None and v.dtype.startswith("period[")
+           for v in values):
+        # dt.to_period() kept in a frame as the periods' text: pandas compares and adds periods
+        # ("2024-3" == 2024-03, month + 1 is the next month), not text
+        raise Unsupported("a column of periods, held as their text: operators on it stay pandas")
     for value in values:
         if isinstance(value, Column):
             return value

@@ -2281,6 +2281,8 @@ def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
     if statement is not None and handover.makes_periods(
             cst.Module([]).code_for_node(statement), period_names or set()):
         return None
+    if any(t.startswith("period[") for _, t in frame.dtypes):
+        return None  # periods kept as their text went over as pandas' Period values
     if statement is not None and handover.makes_python_ints(cst.Module([]).code_for_node(statement)):
         return None  # whole numbers past Int64: an object column no Polars type holds
     columns: tuple[str, ...] | None = None

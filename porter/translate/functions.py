@@ -225,6 +225,8 @@ def learn_functions(services: Services, returns: dict[str, list[Value]],
             columns, dtypes, index = shapes.pop() if len(shapes) == 1 else (None, (), ())
             template = Frame(Code(""), rows=fresh_token(), labels_intact=False, columns=columns,
                              dtypes=dtypes, index=index)
+            template = _nullable_marks(template, returned, calls, frame_params, function,
+                                       services.function_defs.get(name), services.python_module)
         elif returned and all(isinstance(r, (Column, Scalar)) for r in returned):
             template = returned[0]
         file_rows = bool(returned) and all(isinstance(r, Frame) and r.rows in services.file_rows
@@ -299,7 +301,57 @@ def _expression_body(definition: cst.FunctionDef) -> bool:
 
 
 def _same_shape(a: Frame, b: Frame) -> bool:
-    return (a.columns, tuple(sorted(a.dtypes)), a.index) == (b.columns, tuple(sorted(b.dtypes)), b.index)
+    return (a.columns, tuple(sorted(a.dtypes)), a.index, a.nullable_ints, a.unsure_ints) \
+        == (b.columns, tuple(sorted(b.dtypes)), b.index, b.nullable_ints, b.unsure_ints)
+
+
+def _nullable_marks(template: Frame, returned: list[Value], calls: list[tuple[Value, ...]],
+                    frame_params: set[str], function: LocalFunction,
+                    definition: cst.FunctionDef | None, module: Any) -> Frame:
+    """The template of what the function returns, with the columns pandas holds as its nullable
+    integers (Frame.nullable_ints) when porter knows them: the marks of the frames returned when
+    they agree; else none, for a body that takes one frame, which every call passes holding
+    none, and makes none of its own nor reads another frame (the body runs on a parameter whose
+    marks it does not know: `def tidy(df): df["k"] = df["k"].str.strip(); return df`, called as `tix =
+    tidy(tix)` after `tix["week"] = tix["d"].dt.isocalendar().week`)."""
+    marks = {(r.nullable_ints, r.unsure_ints) for r in returned if isinstance(r, Frame)}
+    if len(marks) == 1 and next(iter(marks))[0] is not None:
+        nullable, unsure = marks.pop()
+        return replace(template, nullable_ints=nullable, unsure_ints=unsure)
+    if definition is None or len(frame_params) != 1 or template.columns is None \
+            or not _reads_no_module_values(definition, module):
+        return template
+    from porter.api import NULLABLE_INT_HINTS  # (porter.api imports the translator)
+    if NULLABLE_INT_HINTS.search(cst.Module([]).code_for_node(definition)):
+        return template
+    index = function.params.index(next(iter(frame_params)))
+    given = {(c[index].nullable_ints, c[index].unsure_ints) for c in calls  # type: ignore[union-attr]
+             if index < len(c) and isinstance(c[index], Frame)}
+    # a frame with no nullable integer in, none made in the body, nothing else read: none out
+    # (a column computed in the body from a nullable one of the caller's could be one)
+    if given != {((), ())}:
+        return template
+    return replace(template, nullable_ints=(), unsure_ints=())
+
+
+def _reads_no_module_values(definition: cst.FunctionDef, module: Any) -> bool:
+    """Whether the function's body reads no name the module binds by assignment (a frame
+    of the script's, which may hold nullable integers), only its parameters, its own names,
+    imports, functions and builtins."""
+    if not isinstance(module, ast.Module):
+        return False
+    assigned = {t.id for stmt in module.body if isinstance(stmt, (ast.Assign, ast.AnnAssign, ast.AugAssign))
+                for target in (stmt.targets if isinstance(stmt, ast.Assign) else [stmt.target])
+                for t in ast.walk(target) if isinstance(t, ast.Name)}
+    try:
+        body = ast.parse(textwrap.dedent(cst.Module([]).code_for_node(definition)))
+    except SyntaxError:
+        return False
+    own = {n.id for n in ast.walk(body) if isinstance(n, ast.Name) and isinstance(n.ctx, ast.Store)}
+    own |= {a.arg for n in ast.walk(body) if isinstance(n, ast.arguments)
+            for a in (*n.posonlyargs, *n.args, *n.kwonlyargs)}
+    read = {n.id for n in ast.walk(body) if isinstance(n, ast.Name) and isinstance(n.ctx, ast.Load)}
+    return not (read - own) & assigned
 
 
 # -- functions applied to each group --------------------------------------------------------------

@@ -201,6 +201,8 @@ def to_pandas(value: Value) -> Code:
                 code = code.method("map", emit.atom("list"), na_action="ignore")
             elif value.dtype == "date":
                 code = code.attr("dt").attr("date")  # see _as_pandas_made_them
+            elif value.dtype is not None and value.dtype.startswith("period["):
+                code = code.method("astype", value.dtype)  # the periods, from their text
             elif value.dtype == "bool" and not value.null_is_false and value.nullable_int != "boolean":
                 code = code.method("fillna", emit.atom('float("nan")'))
             elif value.nullable_int and value.dtype == "int":  # pandas' nullable integers (see Frame)
@@ -271,11 +273,16 @@ def _as_pandas_made_them(code: Code, dtypes: tuple[tuple[str, str], ...],
                          columns: tuple[str, ...] | None) -> Code:
     """A collected frame's columns as pandas holds them where Polars hands them over otherwise:
     dates are `datetime.date` objects (`dt.date`; Polars gives datetime64, so a function given
-    them would see Timestamps), lists are lists (Polars gives numpy arrays), and a missing
+    them would see Timestamps), periods are Periods (Polars holds their text), lists are lists (Polars gives numpy arrays), and a missing
     True/False is NaN (Polars gives None, which is false where NaN is true)."""
     flags = [c for c, t in dtypes if t == "bool"]  # fillna passes over a column not there
     if flags:
         code = code.method("fillna", {c: emit.atom('float("nan")') for c in flags})
+    # dt.to_period() kept in a frame as the periods' text ("2024-03"), which pandas reads back
+    periods = {c: t for c, t in dtypes if t.startswith("period[") and columns is not None
+               and c in columns}
+    if periods:
+        code = code.method("astype", periods)
     dates = [c for c, t in dtypes if t == "date" and columns is not None and c in columns]
     # str.split's lists: Polars hands each over as a numpy array, pandas holds a list (and
     # NaN for a missing one)
