@@ -182,3 +182,14 @@ t["net"] = t.apply(lambda r: round(max(r["price"] * 0.9 - (r["v"] if r["v"] > 0 
 t.to_csv("out.csv", index=False)
 ''', tmp_path, {"t.csv": "price,v,k\n2.975,,a\n10,2,b\n1.005,5,c\n,1,d\n"}).converted_text
     assert "round(v, 2)" in text
+
+
+def test_math_floor_and_ceil_are_python_ints(tmp_path: Path) -> None:
+    # math.floor returns a Python int: pandas makes an int64 column where no value is NaN
+    # (the lambda tests it first); -0.5 floors to -1 and ceils to 0
+    text = check(tmp_path, """\
+import math
+trips["fare_floor"] = trips["fare"].apply(lambda m: math.floor(m) if m == m else -1)
+trips["half_up"] = trips["fare"].map(lambda m: math.ceil(m / 2 - 3) if m == m else 0)
+""")
+    assert ".floor().cast(pl.Int64)" in text and ".ceil().cast(pl.Int64)" in text

@@ -790,6 +790,26 @@ def element_format(call: PandasCall, ctx: RuleContext) -> Value:
                       "no expression form here")
 
 
+@rule("element.math.floor", "element.math.ceil")
+def element_math_rounding(call: PandasCall, ctx: RuleContext) -> Value:
+    """math.floor(x) / math.ceil(x) in a lambda -> .floor() / .ceil() cast to Int64: Python's
+    int, as pandas makes an int64 column of them (-0.5 floors to -1, ceils to 0).
+
+    Caveats: math.floor of NaN raises in pandas (ValueError); Polars keeps it missing (0.95,
+    as int()); of an infinity both raise.
+    """
+    element = _element(call)
+    if element.dtype not in ("int", "float"):
+        raise Unsupported(f"math.{call.name} of a {element.dtype or 'value of unknown type'}")
+    code = element.code
+    if element.dtype == "float" or element.float_int:
+        ctx.lower(f"math.{call.name}() of a missing value raises in pandas; Polars keeps it "
+                  "missing", 0.95)
+        code = code.method(call.name)
+    code = code.method("cast", emit.atom("pl.Int64"))
+    return replace(_value(element, code, dtype="int"), python_int=True)
+
+
 @rule("element.round", "element.abs")
 def element_number(call: PandasCall, ctx: RuleContext) -> Value:
     """round(x, n) / abs(x) in a lambda -> .round(n) / .abs(); Python's round of a float runs

@@ -603,6 +603,9 @@ class Evaluator:
                 # Timestamp.day_name() / month_name(): the English names, as strftime gives them
                 pattern = _TIMESTAMP_NAMES[node.func.attr.value]
                 return Opaque(receiver.code.method("strftime", pattern), sites=receiver.sites)
+        rounded = self.math_rounding(node)
+        if rounded is not None:
+            return rounded
         func = self.eval(node.func)
         if isinstance(func, Opaque) and not func.sites and isinstance(node.func, cst.Name):
             name = node.func.value
@@ -639,6 +642,21 @@ class Evaluator:
             key = _module_key(func.qualname)
             call = PandasCall(None, func.qualname.rsplit(".", 1)[-1], positional, keywords, node)
         return self.dispatch(key, call, node)
+
+    def math_rounding(self, node: cst.Call) -> Value | None:
+        """math.floor(x) / math.ceil(x) of a lambda's value (the script imports math itself)."""
+        func = node.func
+        if not (isinstance(func, cst.Attribute) and isinstance(func.value, cst.Name)
+                and func.value.value == "math" and func.attr.value in ("floor", "ceil")
+                and "math" not in self.env and _imports_math(self.services.python_module)):
+            return None
+        args = self.call_args(node)
+        if args is None or len(args[0]) != 1 or args[1] \
+                or not (isinstance(args[0][0], Column) and args[0][0].element):
+            return None
+        name = func.attr.value
+        return self.dispatch(f"element.math.{name}", PandasCall(args[0][0], name, (), {}, node),
+                             node)
 
     def dict_get(self, node: cst.Call) -> Value | None:
         """`mapping.get(x, default)` where x is a lambda's parameter: a lookup."""
@@ -1195,6 +1213,13 @@ _LABELS_NOT_READ = frozenset({
 # text and date methods work value by value, as do the operations inside an element or row
 # function: the result keeps the labels without reading them
 _ELEMENT_PREFIXES = ("series.str.", "series.dt.", "element.")
+
+
+def _imports_math(module: Any) -> bool:
+    """Whether the script's top level has `import math` (the name not taken by another import)."""
+    body = getattr(module, "body", ())
+    return any(isinstance(stmt, ast.Import) and any(a.name == "math" and a.asname is None
+                                                     for a in stmt.names) for stmt in body)
 
 
 def _plain_format_spec(part: cst.FormattedStringExpression) -> str | None:
