@@ -65,7 +65,7 @@ print("runs with no date:", runs["trial_date"].isna().sum())
 runs["retired"] = runs[PHASES].isna().any(axis=1) & runs["run_time"].str.contains("retired", case=False, na=True)
 for p in PHASES:
     runs[p] = runs[p].fillna(0)
-runs["lost"] = runs[PHASES].sum(axis=1)
+runs["lost"] = runs.loc[:, "outrun":"pen"].sum(axis=1)
 runs = runs.merge(classes, on="class", how="left")
 runs["max_points"] = runs["max_points"].fillna(100)
 runs["score"] = runs["max_points"] - runs["lost"]
