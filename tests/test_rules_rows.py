@@ -70,7 +70,7 @@ TODOS = [
     pytest.param("r = df[df.v > 1].reset_index()", "frame.reset_index", id="reset_index after a filter"),
     pytest.param('r = df.sort_values("v").reset_index()', "frame.reset_index", id="reset_index after a sort"),
     pytest.param('r = df.nlargest(2, "v", keep="last")', "frame.nlargest", id="nlargest keep last"),
-    pytest.param('r = df.nlargest(2, "v", keep="all")', "frame.nlargest", id="nlargest keep all"),
+    pytest.param('r = df.nlargest(2, ["v", "n"], keep="all")', "frame.nlargest", id="nlargest keep all on two columns"),
     pytest.param('r = df.sort_values("k", key=lambda s: s.str.lower())', "frame.sort_values",
                  id="sort key function"),
     pytest.param('r = df.replace({"k": {"a": "A"}})', "frame.replace", id="nested replace dict"),

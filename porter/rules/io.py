@@ -747,7 +747,9 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     text as an empty field, as pandas writes it (Polars quotes it; with na_rep given beside
     text columns pandas writes the file, as Polars' writer has one text for both); columns of lists of text, numbers or True/False as pandas writes str(list)
     (numpy arrays, which pandas writes [1 2], are lists in Polars: 0.9 where the script may
-    make them).
+    make them); float_format="%.<n>f" as float_precision (Python's % and Polars both round the
+    exact binary value, ties to even); date_format with directives both write alike
+    (_SAME_DIRECTIVES), other formats are TODOs.
     Caveats: booleans and datetimes are written as pandas writes them (True/False, no `T`,
     the offset of a time zone: +00:00);
     an integer column holding a missing value as floats (2024.0: float64 in pandas), and one
@@ -761,8 +763,10 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     encoding) so the row labels are written.
     """
     ctx.reject_unknown(call, "path_or_buf", "index", "sep", "header", "na_rep", "columns",
-                       "encoding", "compression", positional=1)
+                       "encoding", "compression", "float_format", "date_format", positional=1)
     target = _write_target(call, ctx, "csv")
+    digits = _float_format_digits(call, ctx)
+    date_format = _csv_date_format(call, ctx)
     frame = _as_frame(call)
     if frame.column_pairs and call.const("header", None, True) is not False:
         # agg({"v": ["sum", "mean"]}): pandas' columns have two levels, written as a header of
@@ -818,8 +822,18 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
     if frame.columns is not None and len(frame.dtypes) == len(frame.columns):
         ctx.confidence = max(ctx.confidence, 0.98)  # every column's type is known and handled
     frame = nullable_ints_text(frame, ctx)
-    frame = float32_text(frame, ctx)
+    if digits is None:
+        frame = float32_text(frame, ctx)  # (with float_format float32 is formatted as float64)
     text = csv_text_columns(frame, ctx)
+    if date_format is not None:
+        # every datetime column (a time zone's local time, as pandas formats it) through the
+        # format pandas gives strftime; dates held as Python dates (pl.Date) pandas writes as
+        # they are, and durations too
+        text = [emit.atom("pl.selectors.datetime()").attr("dt").method("strftime", date_format)
+                if c.text == CSV_DATETIMES_CONSTANT else c for c in text]
+    if digits is not None:
+        text = [_fixed_float_text(c, digits) for c in text]
+        kwargs["float_precision"] = digits
     kinds = {t for _, t in frame.dtypes}
     if CSV_DATETIMES_CONSTANT in {c.text for c in text}:
         # datetimes with a time zone first, with their offset (PANDAS_CSV_DATETIMES' selector
@@ -853,7 +867,61 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 # to_csv options a write handed to pandas passes on as they were written
-HANDED_OPTIONS = ("sep", "header", "na_rep", "encoding", "compression")
+HANDED_OPTIONS = ("sep", "header", "na_rep", "encoding", "compression", "float_format",
+                  "date_format")
+
+# strftime directives Python (pandas' Timestamp.strftime) and Polars (chrono) write alike for
+# a datetime: %f is microseconds in Python and nanoseconds in chrono, %z and %Z differ for a
+# column without a time zone (Python writes nothing), %c, %x, %X and the rest follow a locale
+_SAME_DIRECTIVES = frozenset("YmdHMSybBaAjIp%")
+
+
+def _csv_date_format(call: PandasCall, ctx: RuleContext) -> str | None:
+    """to_csv(date_format=...): the format when Polars' strftime writes what pandas writes."""
+    if not call.has("date_format"):
+        return None
+    fmt = call.const("date_format", None, None, kinds=(str, type(None)))
+    if fmt is None:
+        return None
+    directives = re.findall(r"%(.?)", fmt)
+    if not all(d in _SAME_DIRECTIVES for d in directives):
+        odd = sorted({f"%{d}" for d in directives if d not in _SAME_DIRECTIVES})
+        raise ctx.todo(f"date_format with {', '.join(odd)}: Python's strftime and Polars' write "
+                       "it differently")
+    return fmt
+
+
+def _float_format_digits(call: PandasCall, ctx: RuleContext) -> int | None:
+    """to_csv(float_format="%.2f"): the number of decimals, which sink_csv's float_precision
+    writes as Python's % operator does (the exact binary value rounded, ties to even)."""
+    if not call.has("float_format"):
+        return None
+    fmt = call.const("float_format", None, None, kinds=(str, type(None)))
+    if fmt is None:
+        return None
+    found = re.fullmatch(r"%\.(\d{1,2})f", fmt)
+    if found is None:
+        raise ctx.todo(f"float_format={fmt!r}: only the form '%.<n>f' is ported (Polars' writer "
+                       "has a number of decimals, not a format)")
+    return int(found.group(1))
+
+
+def _fixed_float_text(column: Code, digits: int) -> Code:
+    """A csv_text_columns expression under float_format: float columns stay numbers, for
+    float_precision (NaN an empty field, as pandas writes it); integer columns holding a missing
+    value, which pandas holds as float64, written as the float float_format gives ("2024.00")."""
+    if column.text == CSV_FLOATS_CONSTANT:
+        return emit.atom("pl.selectors.float()").method("fill_nan", None)
+    if column.text == CSV_INTS_CONSTANT:
+        # "%.2f" % float(k): the float nearest k (above 2**53 another integer), then the zeros
+        as_float = emit.atom("pl.selectors.integer()").method("cast", emit.atom("pl.Float64")) \
+            .method("cast", emit.atom("pl.Int64")).method("cast", emit.atom("pl.String"))
+        if digits:
+            as_float = emit.binop(as_float, "+", emit.lit("." + "0" * digits))
+        return emit.when(emit.binop(emit.atom("pl.selectors.integer()").method("null_count"), ">", 0),
+                         as_float,
+                         emit.atom("pl.selectors.integer()").method("cast", emit.atom("pl.String")))
+    return column
 
 
 def _sink_compression(call: PandasCall, target: Value, ctx: RuleContext) -> dict[str, object]:

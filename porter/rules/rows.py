@@ -196,7 +196,11 @@ def nlargest(call: PandasCall, ctx: RuleContext) -> Value:
     """df.nlargest(n, columns) -> .sort(columns, descending=True, nulls_last=True, maintain_order=True).head(n).
 
     Handles: ties kept in their original order (keep="first"; top_k has no such guarantee);
-    missing values come last, as pandas appends them when n exceeds the values.
+    missing values come last, as pandas appends them when n exceeds the values; keep="all" on
+    one column: the n first rows and every later row tied with the last of them (a missing
+    value ties with every missing value: pandas appends them all when n reaches them).
+    Caveats: keep="last", and keep="all" on several columns or with n not written out, are
+    TODOs.
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
@@ -204,14 +208,28 @@ def nlargest(call: PandasCall, ctx: RuleContext) -> Value:
     n = call.const("n", 0)
     columns = call.const("columns", 1)
     keep = call.const("keep", None, "first")
-    if keep != "first":
+    if keep not in ("first", "all"):
         raise Unsupported(f"keep={keep!r}")
     columns = column_names(columns)
     largest = call.name == "nlargest"
     kwargs: dict[str, object] = {"descending": True} if largest else {}
     kwargs |= {"nulls_last": True, "maintain_order": True}
-    code = frame.code.method("sort", emit.names_arg(columns), **kwargs).method("head", n)
-    return derive(frame, code, same_rows=False)
+    code = frame.code.method("sort", emit.names_arg(columns), **kwargs)
+    if keep == "all":
+        if len(columns) != 1:
+            raise Unsupported("keep='all' on several columns")
+        if not (isinstance(n, int) and not isinstance(n, bool) and n >= 0):
+            raise Unsupported("keep='all' with a number of rows porter cannot read")
+        if n > 0:
+            # sorted, ties in their original order: the rows past the n-th that equal it
+            # (eq_missing: a missing n-th value keeps every missing value, as pandas does)
+            column = emit.col(columns[0])
+            boundary = column.method("head", n).method("last")
+            position = emit.pl("int_range", emit.pl("len"))
+            return derive(frame, code.method("filter", emit.binop(
+                emit.binop(position, "<", n), "|", column.method("eq_missing", boundary))),
+                same_rows=False)
+    return derive(frame, code.method("head", n), same_rows=False)
 
 
 @rule("series.nlargest", "series.nsmallest")

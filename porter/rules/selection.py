@@ -347,7 +347,34 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
         return column_by_key(frame, cols, ctx)
     if isinstance(cols, Opaque) and isinstance(cols.const, list) and all(isinstance(c, str) for c in cols.const):
         return select_columns(frame, frame.code.method("select", *cols.const), cols.const)
+    if isinstance(cols, Opaque) and isinstance(cols.const, slice):
+        return _column_label_slice(frame, cols.const)
     raise Unsupported("columns chosen by something other than names")
+
+
+def _column_label_slice(frame: Frame, piece: slice) -> Frame:
+    """df.loc[:, "a":"c"]: the columns from a to c, both included, in the frame's order (a
+    label slice is inclusive in pandas), computed from the columns porter knows."""
+    if frame.columns is None:
+        raise Unsupported("a slice of column labels of a frame whose columns porter does not "
+                          "know (run with --data)")
+    if frame.index:
+        raise Unsupported("a slice of column labels beside keys pandas keeps in the index")
+    names = list(frame.columns)
+    for bound in (piece.start, piece.stop):
+        if bound is not None and not (isinstance(bound, str) and bound in names):
+            # pandas raises KeyError for a label that is not a column
+            raise Unsupported(f"the slice bound {bound!r} is not a column porter knows")
+    step = piece.step
+    if step is not None and not (isinstance(step, int) and not isinstance(step, bool) and step > 0):
+        raise Unsupported("a slice of column labels with a step other than a positive number")
+    start = names.index(piece.start) if piece.start is not None else 0
+    stop = names.index(piece.stop) + 1 if piece.stop is not None else len(names)
+    chosen = names[start:stop:step]
+    if not chosen:
+        # pandas keeps the rows with no columns; a Polars frame without columns has no rows
+        raise Unsupported("a slice of column labels that chooses no column")
+    return select_columns(frame, frame.code.method("select", *chosen), chosen)
 
 
 @rule("frame.index")
