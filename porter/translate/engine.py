@@ -27,7 +27,7 @@ from porter.translate.functions import (
 )
 from porter.rules.assign import FRAME_STAYS_PANDAS, INTERVAL_MAKERS
 from porter.translate.writes import FileChanges, FreshSchemas, batch_writes, is_sink_text
-from porter.translate.context import PandasCall, grouping_code
+from porter.translate.context import PandasCall, grouping_code, select_columns, with_column_updates
 from porter.translate.evaluate import Evaluator, Services, parts_current
 from porter.translate.values import (
     MISSING, Column, Frame, Grouped, Indexed, Module, Opaque, PandasValue, Parts, Scalar, Value,
@@ -213,6 +213,9 @@ class _Walker:
         # the loops and functions around the statement at hand, outermost first (first and
         # last line): a statement in them runs again after the lines that follow it
         self.spans: list[tuple[int, int]] = []
+        # str.extract's columns kept in the text's frame under names of their own (see
+        # parts_as_columns): the line of the name's last read -> (frame, those columns)
+        self.parts_drops: dict[int, tuple[str, tuple[str, ...]]] = {}
         self._bound: dict[str, list[int]] | None = None  # see bound_lines
         self._bindings: list[tuple[list[str], ast.AST]] = []
 
@@ -809,6 +812,12 @@ class _Walker:
             text, new_sites = self.small(small, env, indent)
             texts.append(text)
             sites += new_sites
+        if self.parts_drops:
+            dropped = self.drop_parts_columns(env, indent)
+            if dropped is not None:
+                last_text = texts[-1] if texts[-1] is not None \
+                    else self.services.code_for(smalls[-1]).strip()
+                texts[-1] = f"{last_text}\n{dropped}"
             if text is not None:
                 execution: int = id(small)
                 if len(smalls) == 1 and is_sink_text(text):
@@ -1551,6 +1560,74 @@ class _Walker:
                 return False
         return True
 
+    def parts_as_columns(self, name: str, parts: Parts, env: dict[str, Value],
+                         indent: str) -> tuple[str | None, list[SiteDraft]] | None:
+        """`route = df["route"].str.extract(pat)` read after `df["route"]` is overwritten
+        (`df["route"] = route[0]; df["area"] = route[1]`): pandas' frame of parts keeps the
+        values of the text as it was. Its columns are added to the text's frame under names of
+        their own where it is bound (`df.with_columns(_route_0=..., _route_1=...)`), each
+        `route[k]` reads its column, and they are dropped after the name's last read. Only
+        for str.extract (its columns known), at the top level, when until that read the name
+        is only subscripted with a label and the frame only read or written column by column
+        (`df["c"]`): nothing shows the added columns. None otherwise (pandas computes it)."""
+        source = parts.source
+        frame_name = source.frame.code.text
+        frame = env.get(frame_name)
+        if name in self.services.changed_in_place or self.function is not None \
+                or self.loop_depth or not parts.width_known or not parts.fields \
+                or not parts_current(parts, env) or not isinstance(frame, Frame) \
+                or frame.columns is None or not frame_name.isidentifier():
+            return None
+        found = _last_read_column_by_column(self.services.python_module, name, frame_name,
+                                            self.services.statement_lines[1])
+        if found is None or not found[1] & source.refs:
+            return None  # its text is not overwritten before the last read: kept as it is
+        last = found[0]
+        hidden: dict[object, str] = {}
+        for label, _ in parts.fields:
+            column = f"_{name}_{label}"
+            while column in frame.columns or column in hidden.values():
+                column = "_" + column
+            hidden[label] = column
+        # the name keeps the expression of the whole result, as for a frame of parts whose
+        # text stays (parts.struct.field("1")); the frame takes its columns from it
+        fields = dict(parts.fields)
+        whole = emit.layout_chain(parts.code, indent, f"{name} = ")
+        code = emit.atom(frame_name).method("with_columns", **{
+            column: emit.atom(name).attr("struct").method("field", fields[label])
+            for label, column in hidden.items()})
+        text, sites = self.bind(frame_name, with_column_updates(
+            frame, code, dict.fromkeys(hidden.values(), "str")), env, indent)
+        text = f"{whole}\n{text}" if text else whole
+        widened = env[frame_name]
+        assert isinstance(widened, Frame)
+        kept = Column(emit.col(next(iter(hidden.values()))), frame=widened, name=source.name,
+                      dtype="str", refs=frozenset(hidden.values()),
+                      versions=tuple((c, widened.version(c)) for c in hidden.values()))
+        env[name] = replace(parts, code=emit.atom(name), sites=(), source=kept,
+                            singles=tuple((label, emit.col(c)) for label, c in hidden.items()),
+                            bound=False, binding=self.statement_key)
+        self.parts_drops[last] = (frame_name, tuple(hidden.values()))
+        return text, [*parts.sites, *sites]
+
+    def drop_parts_columns(self, env: dict[str, Value], indent: str) -> str | None:
+        """After the statement that reads a frame of parts kept as columns for the last time
+        (see parts_as_columns): those columns are dropped from its frame."""
+        start, end = self.services.statement_lines
+        due = [line for line in self.parts_drops if start <= line <= end]
+        texts = []
+        for line in due:
+            frame_name, columns = self.parts_drops.pop(line)
+            frame = env.get(frame_name)
+            if isinstance(frame, Frame) and frame.columns is not None:
+                kept = [c for c in frame.columns if c not in columns]
+                code = emit.atom(frame_name).method("drop", *columns)
+                text, _ = self.bind(frame_name, select_columns(frame, code, kept), env, indent)
+                texts.append(text or "")
+            elif isinstance(frame, PandasValue):  # handed to pandas since: dropped there
+                texts.append(f"{frame_name} = {frame_name}.drop(columns={list(columns)!r})")
+        return "\n".join(t for t in texts if t) or None
+
     def series_of_its_own(self, name: str, value: Column) -> tuple[Code, Column]:
         """`s = df.select(...)`: the Series keeps its values when `df` is filtered later; it is
         still an expression of `df` while `df` keeps the same rows and columns."""
@@ -1661,6 +1738,8 @@ class _Walker:
             # whole result, its columns taken from it (parts.struct.field("1")); pandas computes
             # it when the name is changed in place or is read after its frame's name holds
             # other rows (the evaluator notes that)
+            if (kept := self.parts_as_columns(name, value, env, indent)) is not None:
+                return kept
             if parts_current(value, env) and name not in self.services.changed_in_place \
                     and self.statement_key not in self.services.stale_series:
                 env[name] = replace(value, code=emit.atom(name), sites=(), bound=True,
@@ -1807,6 +1886,45 @@ def _shared_by(stmt: ast.stmt, is_frame: Callable[[str], bool]) -> tuple[list[st
         if owner and not is_frame(owner[0]):  # not a frame's own update() or insert()
             return [n for a in stmt.value.args for n in _held_names(a)], owner
     return [], []
+
+
+def _last_read_column_by_column(module: ast.Module | None, name: str, frame: str,
+                                 after: int) -> tuple[int, set[str]] | None:
+    """The line of the last read of `name` after line `after`, and the columns of `frame`
+    written up to that statement (`frame["c"] = ...`), when every use of `name` and of `frame`
+    until then is a subscript with a constant (`name[0]`, `frame["c"]`) in a statement at the
+    top level of the module, and `name` is not bound again; else None."""
+    if module is None:
+        return None
+    uses = [(stmt, node) for stmt in module.body for node in ast.walk(stmt)
+            if isinstance(node, ast.Name) and node.id in (name, frame)
+            and node.lineno > after]
+    reads = [node.lineno for _, node in uses if node.id == name]
+    if not reads:
+        return None
+    last_statement = next(stmt for stmt, node in uses if node.lineno == max(reads))
+    end = last_statement.end_lineno or last_statement.lineno
+    subscripted = {id(node.value) for stmt in module.body for node in ast.walk(stmt)
+                   if isinstance(node, ast.Subscript) and isinstance(node.value, ast.Name)
+                   and isinstance(node.slice, ast.Constant)
+                   and isinstance(node.slice.value, (str, int))
+                   and not isinstance(node.slice.value, bool)}
+    inner = (ast.FunctionDef, ast.AsyncFunctionDef, ast.ClassDef, ast.Lambda, ast.For,
+             ast.While, ast.If, ast.With, ast.Try, ast.comprehension)
+    written = set()
+    for stmt, node in uses:
+        if node.lineno > end:
+            continue
+        if id(node) not in subscripted or isinstance(stmt, inner) \
+                or node.id == name and isinstance(node.ctx, ast.Store):
+            return None
+    for stmt, _ in uses:
+        for node in ast.walk(stmt):
+            if isinstance(node, ast.Subscript) and isinstance(node.ctx, ast.Store) \
+                    and isinstance(node.value, ast.Name) and node.value.id == frame \
+                    and isinstance(node.slice, ast.Constant) and node.lineno <= end:
+                written.add(node.slice.value)
+    return max(reads), written
 
 
 def _bindings(module: ast.Module | None) -> tuple[dict[str, list[int]], list[tuple[list[str], ast.AST]]]:
