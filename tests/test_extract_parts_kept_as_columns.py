@@ -61,3 +61,41 @@ def test_text_kept_stays_an_expression() -> None:
     text = convert(HEAD + EXTRACT + 'df["a"] = parts[0]\ndf["b"] = parts[1]\nresult = df\n'
                    ).converted_text
     assert "_parts_0" not in text and "parts.struct.field" in text
+
+
+# -- str.split(expand=True) changed in place, and a Series read after its column changed ----
+
+SAILINGS = ("import numpy as np\nimport pandas as pd\n"
+            'df = pd.DataFrame({"day": ["2025-06-24", "2025-06-24", "2025-06-25", None, '
+            '"2025-06-26", "2025-06-24"], "span": ["5:00-09:00", "22:30 - 01:15", "all tide", '
+            '"6:00-7:00", None, "5:00-09:00"]})\n'
+            "df = df.drop_duplicates()\n"
+            'df["day"] = pd.to_datetime(df["day"], format="%Y-%m-%d")\n')
+
+
+def test_split_relabelled_and_changed_in_place() -> None:
+    result = differential(SAILINGS +
+                          'span = df["span"].str.replace(" ", "", regex=False).str.split("-", expand=True)\n'
+                          'span.columns = ["start", "stop"]\n'
+                          'span["start"] = span["start"].str.zfill(5)\n'
+                          "head = span.head()\n"
+                          'df["start"] = df["day"] + pd.to_timedelta(span["start"] + ":00", errors="coerce")\n'
+                          'df["stop"] = df["day"] + pd.to_timedelta(span["stop"] + ":00", errors="coerce")\n'
+                          "result = df\n", "result", "head")
+    text = result.converted_text
+    assert "to_pandas" not in text and "TODO" not in text
+    assert 'df.drop("_span_0", "_span_1")' in text
+
+
+def test_mask_read_after_a_column_it_reads_is_written() -> None:
+    # pandas' mask keeps its values: overnight.sum() counts the runs before the day was added
+    result = differential(SAILINGS +
+                          'df["start"] = df["day"] + pd.Timedelta(hours=5)\n'
+                          'df["stop"] = df["day"] + pd.Timedelta(hours=1)\n'
+                          'overnight = df["stop"] < df["start"]\n'
+                          'df.loc[overnight, "stop"] += pd.Timedelta(days=1)\n'
+                          'df["minutes"] = (df["stop"] - df["start"]).dt.total_seconds() / 60\n'
+                          "late = overnight.sum()\n"
+                          "result = df\n", "result", "late")
+    text = result.converted_text
+    assert "TODO" not in text and 'df.drop("_overnight")' in text
