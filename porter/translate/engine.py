@@ -1672,7 +1672,8 @@ class _Walker:
             {column: value.dtype}), env, indent)
         text = f"{whole}\n{text}" if text else whole
         widened = env[frame_name]
-        assert isinstance(widened, Frame)
+        if not isinstance(widened, Frame):  # not expected: the frame was handed over
+            return None
         env[name] = replace(value, code=emit.col(column), frame=widened, sites=(),
                             refs=frozenset({column}), null_is_false=False,
                             versions=((column, widened.version(column)),))
@@ -1683,8 +1684,9 @@ class _Walker:
         """The frame of parts `name` as its columns now are: each label read from its column
         of the text's frame (see parts_as_columns), pandas' frame made from them."""
         frame_name, _ = self.parts_columns[name]
-        frame, parts = env[frame_name], env[name]
-        assert isinstance(frame, Frame) and isinstance(parts, Parts)
+        frame, parts = env.get(frame_name), env.get(name)
+        if not isinstance(frame, Frame) or not isinstance(parts, Parts):
+            return  # handed to pandas meanwhile: pandas code reads it from there
         kept = Column(emit.col(next(iter(hidden.values()))), frame=frame, name=parts.source.name,
                       dtype="str", refs=frozenset(hidden.values()),
                       versions=tuple((c, frame.version(c)) for c in hidden.values()))
