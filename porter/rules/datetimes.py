@@ -1118,13 +1118,16 @@ def _text_timedelta(call: PandasCall, column: Column, errors: str, ctx: RuleCont
     micro = field("fraction").attr("str").method("pad_end", 6, "0") \
         .method("cast", emit.atom("pl.Int64")).method("fill_null", 0)
     days = emit.pl("duration", days=whole("days").method("fill_null", 0))
-    time = emit.pl("duration", hours=whole("hours"), minutes=whole("minutes"),
-                   seconds=whole("seconds"), microseconds=micro)
     sign = emit.when(emit.binop(field("sign"), "==", "-"), -1, 1)
-    body = emit.binop(days, "+", emit.binop(time, "*", sign))
+    # laid out over lines (a lambda is one expression, which the chain layout keeps whole)
+    parts = ",\n".join(f"        {k}={v.text}" for k, v in (
+        ("hours", whole("hours")), ("minutes", whole("minutes")), ("seconds", whole("seconds")),
+        ("microseconds", micro)))
+    body = (f"lambda t: (\n    {days.text}\n    + pl.duration(\n{parts},\n    )\n"
+            f"    * {sign.text}\n)")
     code = column.code.attr("str").method("replace_all", "[ ,+]", "") \
         .attr("str").method("extract_groups", _TEXT_DURATION) \
-        .method("pipe", Code(f"lambda t: {body.text}"))
+        .method("pipe", Code(body))
     return derived_column(column, code, dtype="duration", name=column.name)
 
 
