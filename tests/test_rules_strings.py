@@ -585,14 +585,16 @@ result = parts[0]
     assert "# TODO(porter): series.str.expand" in result.converted_text
 
 
-def test_parts_changed_in_place_stay_pandas() -> None:
-    # pandas is the reference implementation
+def test_parts_changed_in_place_are_kept_as_columns() -> None:
+    # pandas is the reference implementation: the parts are kept as columns of the frame
+    # (engine.parts_as_columns), relabelled, and read as a whole by a select of them
     result = differential(TAGS + """
 parts = df["tag"].str.extract(r"(\\w)(\\w)")
 parts.columns = ["a", "b"]
 result = parts.copy()
 """)
-    assert "# TODO(porter): series.str.expand" in result.converted_text
+    assert "TODO(porter)" not in result.converted_text, result.converted_text
+    assert 'df.drop("_parts_0", "_parts_1")' in result.converted_text
 
 
 def test_list_column_stored_and_read_back() -> None:

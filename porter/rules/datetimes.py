@@ -1080,20 +1080,77 @@ def to_timedelta(call: PandasCall, ctx: RuleContext) -> Value:
     pd.Timedelta).
 
     A column of numbers with unit= -> pl.duration(days=pl.col("n")) (weeks= … microseconds=):
-    NaN and None become missing, as NaT.
+    NaN and None become missing, as NaT. A column of text with errors="coerce" ->
+    "[-][D days ]H:MM:SS[.ffffff]" read by str.extract_groups into pl.duration (see
+    _text_timedelta), anything else missing.
     Caveats: a float column keeps fractions below a microsecond in pandas (nanoseconds), not
-    here (0.95); a column without unit=, a column of text, a list, a fractional number alone
-    (nanoseconds in pandas) are TODOs.
+    here (0.95); text in a form pandas reads beyond that one is missing here (0.9); a column
+    of text without errors="coerce" (pandas raises on a text it cannot read), a column without
+    unit= that is not text, a list, a fractional number alone (nanoseconds in pandas) are TODOs.
     """
-    ctx.reject_unknown(call, "arg", "unit", positional=2)
+    ctx.reject_unknown(call, "arg", "unit", "errors", positional=2)
+    errors = call.const("errors", None, "raise")
+    if errors not in ("raise", "coerce"):
+        raise ctx.todo(f"errors={errors!r}")
     column = call.arg("arg", 0)
     if isinstance(column, Column):
+        if column.dtype == "str" or column.dtype is None and not call.has("unit", 1) \
+                and errors == "coerce":
+            return _text_timedelta(call, column, errors, ctx)
+        if errors != "raise":
+            raise ctx.todo("errors='coerce' with a column of numbers")
         return _column_timedelta(call, column, ctx)
     if not (isinstance(column, Opaque) and column.is_const):
         # a pandas Series porter left on pandas (its frame was handed over), a list, a name
         raise ctx.todo("only a column of a frame porter ports, or a number or text written "
                        "out, is ported")
+    # a value written out: porter reads it or leaves a TODO, so errors= changes nothing
     return timedelta_scalar(_value_us(call, ctx), ctx)
+
+
+# pandas reads a duration's text character by character (parse_timedelta_string): spaces,
+# commas and "+" are skipped wherever they are, a "-" is only allowed before everything else,
+# "H:M:S" adds each part (25:00:00 is 1 day 01:00:00, 5:60:00 is 6:00:00), "N days" (day, d,
+# D, any case) before it adds days, and the "-" then makes only the days negative
+# ("-1 days +02:00:00" is -22 hours); up to six decimals of a second are microseconds. The
+# digit counts keep every value far below pandas' limit (±106751 days, in nanoseconds)
+# [0-9], not \d: pandas reads ASCII digits only, Polars' \d matches every script's digits
+_TEXT_DURATION = ("^(?:(?<days>-?[0-9]{1,4})(?i:days?|d)|(?<sign>-?))"
+                  "(?<hours>[0-9]{1,6}):(?<minutes>[0-9]{1,6}):(?<seconds>[0-9]{1,8})"
+                  "(?:[.](?<fraction>[0-9]{1,6}))?$")
+
+
+def _text_timedelta(call: PandasCall, column: Column, errors: str, ctx: RuleContext) -> Column:
+    """pd.to_timedelta(texts, errors="coerce") -> the parts of "[-][D days ]H:MM:SS[.ffffff]"
+    (str.extract_groups, spaces, commas and "+" taken out first as pandas skips them) added
+    up by pl.duration; a text of any other form, "", "NaT" and a missing value are missing."""
+    if call.has("unit", 1):
+        raise ctx.todo("a column of text with unit= (pandas refuses it)")
+    if errors != "coerce":
+        raise ctx.todo("a column of text without errors='coerce': pandas raises on a text it "
+                       "cannot read (write errors='coerce' to have it missing)")
+    ctx.lower("text in another form pandas reads is missing here: units (\"5h\", \"2 days\" "
+              "without a time, \"1 hours 02:00:00\"), ISO 8601 (\"P1D\"), a number alone "
+              "(nanoseconds), more than six decimals (nanoseconds: the whole column's unit), "
+              "more than 4 digits of days or 6 of hours; a column with no duration at all is "
+              "timedelta64[s] in pandas, Duration(us) here", 0.9)
+    def field(name: str) -> Code:
+        return emit.atom("t").attr("struct").method("field", name)
+    whole = lambda name: field(name).method("cast", emit.atom("pl.Int64"))  # noqa: E731
+    micro = field("fraction").attr("str").method("pad_end", 6, "0") \
+        .method("cast", emit.atom("pl.Int64")).method("fill_null", 0)
+    days = emit.pl("duration", days=whole("days").method("fill_null", 0))
+    sign = emit.when(emit.binop(field("sign"), "==", "-"), -1, 1)
+    # laid out over lines (a lambda is one expression, which the chain layout keeps whole)
+    parts = ",\n".join(f"        {k}={v.text}" for k, v in (
+        ("hours", whole("hours")), ("minutes", whole("minutes")), ("seconds", whole("seconds")),
+        ("microseconds", micro)))
+    body = (f"lambda t: (\n    {days.text}\n    + pl.duration(\n{parts},\n    )\n"
+            f"    * {sign.text}\n)")
+    code = column.code.attr("str").method("replace_all", "[ ,+]", "") \
+        .attr("str").method("extract_groups", _TEXT_DURATION) \
+        .method("pipe", Code(body))
+    return derived_column(column, code, dtype="duration", name=column.name)
 
 
 _DURATION_KEYWORDS = {unit: keyword for keyword, unit in _KEYWORDS.items()}

@@ -27,7 +27,10 @@ from porter.translate.functions import (
 )
 from porter.rules.assign import FRAME_STAYS_PANDAS, INTERVAL_MAKERS
 from porter.translate.writes import FileChanges, FreshSchemas, batch_writes, is_sink_text
-from porter.translate.context import PandasCall, grouping_code
+from porter.translate.context import (
+    PandasCall, Unsupported, expr_in, grouping_code, select_columns, value_dtype,
+    with_column_updates,
+)
 from porter.translate.evaluate import Evaluator, Services, parts_current
 from porter.translate.values import (
     MISSING, Column, Frame, Grouped, Indexed, Module, Opaque, PandasValue, Parts, Scalar, Value,
@@ -216,6 +219,11 @@ class _Walker:
         # the loops and functions around the statement at hand, outermost first (first and
         # last line): a statement in them runs again after the lines that follow it
         self.spans: list[tuple[int, int]] = []
+        # str.extract's columns kept in the text's frame under names of their own (see
+        # parts_as_columns): the line of the name's last read -> (frame, those columns)
+        self.parts_drops: dict[int, tuple[str, tuple[str, ...]]] = {}
+        # the names holding such frames of parts: their text's frame, and each label's column
+        self.parts_columns: dict[str, tuple[str, dict[object, str]]] = {}
         self._bound: dict[str, list[int]] | None = None  # see bound_lines
         self._bindings: list[tuple[list[str], ast.AST]] = []
 
@@ -826,6 +834,13 @@ class _Walker:
                 self.count_consumers(text, before, execution)
                 if len(smalls) == 1 and _collects_what_it_binds(text):
                     self.services.materialized.add(self.statement_key)
+        if self.parts_drops and smalls:
+            # the last read of a frame of parts kept as columns: they are dropped after it
+            dropped = self.drop_parts_columns(env, indent)
+            if dropped is not None:
+                last_text = texts[-1] if texts[-1] is not None \
+                    else self.services.code_for(smalls[-1]).strip()
+                texts[-1] = f"{last_text}\n{dropped}"
         self.record(tuple(sites))
         if not self.emit_code:  # an analysis pass only learns; the last pass writes
             return [line]
@@ -1365,6 +1380,10 @@ class _Walker:
             return self.bind_changed(owner.value.value, frame, result, env, indent)
         if not isinstance(owner, cst.Name):
             return None
+        if owner.value in self.parts_columns:  # a frame of parts kept as columns
+            changed = self.parts_changed(target, value, env, evaluator, indent)
+            if changed is not None:
+                return changed
         frame = evaluator.eval(owner)
         if not isinstance(frame, Frame):
             return None
@@ -1454,6 +1473,10 @@ class _Walker:
             owner, key = owner.value, "frame.columns.name"  # df.columns.name = None
         if not isinstance(owner, cst.Name):
             return None
+        if owner.value in self.parts_columns:  # a frame of parts kept as columns
+            changed = self.parts_changed(target, value_node, env, evaluator, indent)
+            if changed is not None:
+                return changed
         frame = evaluator.eval(owner)
         if not isinstance(frame, Frame):
             return None
@@ -1559,6 +1582,196 @@ class _Walker:
                 return False
         return True
 
+    def parts_as_columns(self, name: str, parts: Parts, env: dict[str, Value],
+                         indent: str) -> tuple[str | None, list[SiteDraft]] | None:
+        """`route = df["route"].str.extract(pat)` read after `df["route"]` is overwritten
+        (`df["route"] = route[0]; df["area"] = route[1]`), or changed in place (`parts.columns
+        = ["a", "b"]`, `parts["a"] = parts["a"].str.zfill(5)`): pandas' frame of parts keeps
+        its own values. Its columns are added to the text's frame under names of their own
+        where it is bound (`df.with_columns(_route_0=route.struct.field("1"), ...)`), each
+        `route[k]` reads its column, a change writes it, and they are dropped after the name's
+        last read. Only at the top level, when until that read the frame is only read or
+        written column by column (`df["c"]`), so no output shows the added columns, and the
+        name is changed only by those two forms (a whole read, print(parts.head()), is
+        pandas' frame made from the columns). str.split(expand=True) needs `parts.columns =`
+        for its width. None otherwise (pandas computes it)."""
+        source = parts.source
+        frame_name = source.frame.code.text
+        frame = env.get(frame_name)
+        refused = getattr(self.services, "parts_refused", set())
+        if self.function is not None or self.loop_depth or self.statement_key in refused \
+                or not parts_current(parts, env) or not isinstance(frame, Frame) \
+                or frame.columns is None or not frame_name.isidentifier():
+            return None
+        found = _last_read_column_by_column(self.services.python_module, name, frame_name,
+                                            self.services.statement_lines[1],
+                                            self.services.changed_in_place.get(name, []))
+        if found is None:
+            return None
+        last, written, relabels = found
+        if not written & source.refs and name not in self.services.changed_in_place:
+            return None  # its text is not overwritten before the last read: kept as it is
+        sites: list[SiteDraft] = []
+        if parts.fields:  # str.extract, str.split(n=k, expand=True): struct fields
+            fields = dict(parts.fields)
+            labels = list(fields)
+            field_code = {label: emit.atom(name).attr("struct").method("field", fields[label])
+                          for label in labels}
+        elif not parts.fields and relabels:
+            # pandas' width is the parts of the longest row, and `parts.columns = [...]`
+            # raises unless it has as many names
+            labels = list(range(len(relabels[0])))
+            field_code = {i: emit.atom(name).attr("list").method("get", i, null_on_oob=True)
+                          for i in labels}
+            sites.append(SiteDraft(
+                "series.str.split", "split", "converted", 0.98,
+                "pandas' width is the parts of the longest row: it raises where that is not "
+                f"{len(labels)}, and Polars takes the first {len(labels)}",
+                *self.services.statement_lines))
+        else:
+            return None
+        hidden: dict[object, str] = {}
+        for label in labels:
+            column = f"_{name}_{label}"
+            while column in frame.columns or column in hidden.values():
+                column = "_" + column
+            hidden[label] = column
+        # the name keeps the expression of the whole result, as for a frame of parts whose
+        # text stays (parts.struct.field("1")); the frame takes its columns from it
+        whole = emit.layout_chain(parts.code, indent, f"{name} = ")
+        code = emit.atom(frame_name).method("with_columns", **{
+            column: field_code[label] for label, column in hidden.items()})
+        text, bound_sites = self.bind(frame_name, with_column_updates(
+            frame, code, dict.fromkeys(hidden.values(), "str")), env, indent)
+        text = f"{whole}\n{text}" if text else whole
+        env[name] = replace(parts, code=emit.atom(name), sites=(), bound=False,
+                            binding=self.statement_key, width_known=True)
+        self.parts_columns[name] = (frame_name, hidden)
+        self.parts_relabelled(name, env, hidden)
+        self.parts_drops[last] = (frame_name, tuple(hidden.values()))
+        return text, [*parts.sites, *bound_sites, *sites]
+
+    def series_as_column(self, name: str, value: Column, env: dict[str, Value],
+                         indent: str) -> tuple[str | None, list[SiteDraft]] | None:
+        """`late = df["stop"] < df["start"]` read after a column it reads is overwritten
+        (`df.loc[late, "stop"] += ...; print(late.sum())`): pandas' Series keeps its values.
+        It is added to its frame as a column of its own where it is bound, read from there,
+        and dropped after the name's last read, under the conditions of parts_as_columns (the
+        frame read and written column by column until then). None otherwise."""
+        frame_name = value.frame.code.text
+        frame = env.get(frame_name)
+        if self.function is not None or self.loop_depth or name in self.services.changed_in_place \
+                or not isinstance(frame, Frame) or frame.columns is None \
+                or not frame_name.isidentifier() or value.element:
+            return None
+        found = _last_read_column_by_column(self.services.python_module, name, frame_name,
+                                            self.services.statement_lines[1], [])
+        if found is None or not found[1] & value.refs:
+            return None  # nothing it reads is overwritten before its last read
+        last = found[0]
+        column = f"_{name}"
+        while column in frame.columns:
+            column = "_" + column
+        # the name keeps the expression, as a Series of its frame does; the frame takes it
+        whole = emit.layout_chain(value.code, indent, f"{name} = ")
+        code = emit.atom(name).method("fill_null", False) if value.null_is_false else emit.atom(name)
+        text, sites = self.bind(frame_name, with_column_updates(
+            frame, emit.atom(frame_name).method("with_columns", **{column: code}),
+            {column: value.dtype}), env, indent)
+        text = f"{whole}\n{text}" if text else whole
+        widened = env[frame_name]
+        if not isinstance(widened, Frame):  # not expected: the frame was handed over
+            return None
+        env[name] = replace(value, code=emit.col(column), frame=widened, sites=(),
+                            refs=frozenset({column}), null_is_false=False,
+                            versions=((column, widened.version(column)),))
+        self.parts_drops[last] = (frame_name, (column,))
+        return text, [*value.sites, *sites]
+
+    def parts_relabelled(self, name: str, env: dict[str, Value], hidden: dict[object, str]) -> None:
+        """The frame of parts `name` as its columns now are: each label read from its column
+        of the text's frame (see parts_as_columns), pandas' frame made from them."""
+        frame_name, _ = self.parts_columns[name]
+        frame, parts = env.get(frame_name), env.get(name)
+        if not isinstance(frame, Frame) or not isinstance(parts, Parts):
+            return  # handed to pandas meanwhile: pandas code reads it from there
+        kept = Column(emit.col(next(iter(hidden.values()))), frame=frame, name=parts.source.name,
+                      dtype="str", refs=frozenset(hidden.values()),
+                      versions=tuple((c, frame.version(c)) for c in hidden.values()))
+        names = [str(label) for label in hidden]
+        whole = select_columns(frame, emit.atom(frame_name).method(
+            "select", *(emit.col(c).method("alias", str(label)) for label, c in hidden.items())),
+            names)
+        env[name] = replace(parts, source=kept, fields=tuple((label, c) for label, c in hidden.items()),
+                            singles=tuple((label, emit.col(c)) for label, c in hidden.items()),
+                            pandas=handover.to_pandas(whole), whole=whole)
+        self.parts_columns[name] = (frame_name, hidden)
+
+    def parts_changed(self, target: cst.Subscript | cst.Attribute, value: Value | cst.BaseExpression,
+                      env: dict[str, Value], evaluator: Evaluator,
+                      indent: str) -> tuple[str | None, list[SiteDraft]] | None:
+        """`parts.columns = [...]` or `parts["a"] = ...` on a frame of parts kept as columns
+        (see parts_as_columns): new labels, or the label's column written in the text's
+        frame. None when it is not one."""
+        owner = target.value
+        if not isinstance(owner, cst.Name) or owner.value not in self.parts_columns \
+                or not isinstance(env.get(owner.value), Parts):
+            return None
+        name = owner.value
+        frame_name, hidden = self.parts_columns[name]
+        frame = env.get(frame_name)
+        if isinstance(target, cst.Attribute):
+            labels = evaluator.eval(value) if isinstance(value, cst.BaseExpression) else value
+            names = labels.const if isinstance(labels, Opaque) and labels.is_const else None
+            if target.attr.value != "columns" or not isinstance(names, (list, tuple)) \
+                    or len(names) != len(hidden) or len(set(map(repr, names))) != len(names):
+                return self.parts_refuse(name, env)
+            self.parts_relabelled(name, env, dict(zip(names, hidden.values())))
+            return "", []
+        key = evaluator.eval(_index_of(target))
+        label = key.const if isinstance(key, Opaque) and key.is_const else None
+        if label not in hidden or not isinstance(frame, Frame) or not isinstance(value, Value):
+            return self.parts_refuse(name, env)
+        try:
+            code = expr_in(value, frame)
+        except Unsupported:
+            return self.parts_refuse(name, env)
+        text, sites = self.bind(frame_name, with_column_updates(
+            frame, emit.atom(frame_name).method("with_columns", **{hidden[label]: code}),
+            {hidden[label]: value_dtype(value)}), env, indent)
+        self.parts_relabelled(name, env, hidden)
+        return text, [*value.sites, *sites]
+
+    def parts_refuse(self, name: str, env: dict[str, Value]) -> None:
+        """A change of a frame of parts kept as columns that porter does not follow: the next
+        pass has pandas compute it where it is bound (and the pass at hand goes on)."""
+        parts = env.get(name)
+        refused = getattr(self.services, "parts_refused", None)
+        if refused is None:
+            refused = set()
+            self.services.parts_refused = refused  # type: ignore[attr-defined]
+        if isinstance(parts, Parts) and parts.binding is not None:
+            refused.add(parts.binding)
+        return None
+
+    def drop_parts_columns(self, env: dict[str, Value], indent: str) -> str | None:
+        """After the statement that reads a frame of parts kept as columns for the last time
+        (see parts_as_columns): those columns are dropped from its frame."""
+        start, end = self.services.statement_lines
+        due = [line for line in self.parts_drops if start <= line <= end]
+        texts = []
+        for line in due:
+            frame_name, columns = self.parts_drops.pop(line)
+            frame = env.get(frame_name)
+            if isinstance(frame, Frame) and frame.columns is not None:
+                kept = [c for c in frame.columns if c not in columns]
+                code = emit.atom(frame_name).method("drop", *columns)
+                text, _ = self.bind(frame_name, select_columns(frame, code, kept), env, indent)
+                texts.append(text or "")
+            elif isinstance(frame, PandasValue):  # handed to pandas since: dropped there
+                texts.append(f"{frame_name} = {frame_name}.drop(columns={list(columns)!r})")
+        return "\n".join(t for t in texts if t) or None
+
     def series_of_its_own(self, name: str, value: Column) -> tuple[Code, Column]:
         """`s = df.select(...)`: the Series keeps its values when `df` is filtered later; it is
         still an expression of `df` while `df` keeps the same rows and columns."""
@@ -1629,6 +1842,8 @@ class _Walker:
             frame_name = value.frame.code.text
             same_frame = frame_name in env and isinstance(env[frame_name], Frame) \
                 and env[frame_name].rows == value.frame.rows  # type: ignore[union-attr]
+            if same_frame and (kept := self.series_as_column(name, value, env, indent)) is not None:
+                return kept
             if same_frame and self.statement_key in self.services.stale_series:
                 code, env[name] = self.series_of_its_own(name, value)
             elif same_frame:
@@ -1669,6 +1884,8 @@ class _Walker:
             # whole result, its columns taken from it (parts.struct.field("1")); pandas computes
             # it when the name is changed in place or is read after its frame's name holds
             # other rows (the evaluator notes that)
+            if (kept := self.parts_as_columns(name, value, env, indent)) is not None:
+                return kept
             if parts_current(value, env) and name not in self.services.changed_in_place \
                     and self.statement_key not in self.services.stale_series:
                 env[name] = replace(value, code=emit.atom(name), sites=(), bound=True,
@@ -1815,6 +2032,81 @@ def _shared_by(stmt: ast.stmt, is_frame: Callable[[str], bool]) -> tuple[list[st
         if owner and not is_frame(owner[0]):  # not a frame's own update() or insert()
             return [n for a in stmt.value.args for n in _held_names(a)], owner
     return [], []
+
+
+def _last_read_column_by_column(module: ast.Module | None, name: str, frame: str, after: int,
+                                 change_lines: list[int]
+                                 ) -> tuple[int, set[object], list[list[object]]] | None:
+    """For a frame of parts bound to `name` at line `after` (see parts_as_columns): the line
+    of the name's last use, the columns of `frame` written until that statement
+    (`frame["c"] = ...`) and the labels `name.columns = [...]` gives, when until then every
+    use of `frame` is a subscript with a constant (`frame["c"]`), `name` is not bound again
+    and is changed in place only by `name["c"] = ...` and `name.columns = [...]`, all in
+    statements at the top level of the module; else None."""
+    if module is None:
+        return None
+    uses = [(stmt, node) for stmt in module.body for node in ast.walk(stmt)
+            if isinstance(node, ast.Name) and node.id in (name, frame) and node.lineno > after]
+    lines = [node.lineno for _, node in uses if node.id == name]
+    if not lines:
+        return None
+    last_statement = next(stmt for stmt, node in uses if node.lineno == max(lines))
+    end = last_statement.end_lineno or last_statement.lineno
+    subscripted: dict[int, ast.Subscript] = {}
+    relabelled: dict[int, list[object]] = {}
+    for stmt, _ in uses:
+        for node in ast.walk(stmt):
+            if isinstance(node, ast.Subscript) and isinstance(node.value, ast.Name) \
+                    and isinstance(node.slice, ast.Constant) \
+                    and isinstance(node.slice.value, (str, int)) \
+                    and not isinstance(node.slice.value, bool):
+                subscripted[id(node.value)] = node
+            if isinstance(node, ast.Assign) and len(node.targets) == 1 \
+                    and isinstance(node.targets[0], ast.Attribute) \
+                    and node.targets[0].attr == "columns" \
+                    and isinstance(node.targets[0].value, ast.Name) \
+                    and isinstance(node.value, (ast.List, ast.Tuple)) \
+                    and all(isinstance(e, ast.Constant) for e in node.value.elts):
+                relabelled[id(node.targets[0].value)] = [e.value for e in node.value.elts]
+    # frame.loc[rows, "c"] = ... (and +=): one column written
+    located = {id(node.value.value): node.slice.elts[1].value
+               for stmt, _ in uses for node in ast.walk(stmt)
+               if isinstance(node, ast.Subscript) and isinstance(node.ctx, ast.Store)
+               and isinstance(node.value, ast.Attribute) and node.value.attr == "loc"
+               and isinstance(node.value.value, ast.Name) and isinstance(node.slice, ast.Tuple)
+               and len(node.slice.elts) == 2 and isinstance(node.slice.elts[1], ast.Constant)
+               and isinstance(node.slice.elts[1].value, str)}
+    compound = (ast.FunctionDef, ast.AsyncFunctionDef, ast.ClassDef, ast.For, ast.AsyncFor,
+                ast.While, ast.If, ast.With, ast.AsyncWith, ast.Try)
+    written: set[object] = set()
+    relabels: list[list[object]] = []
+    changes_seen: set[int] = set()
+    for stmt, node in uses:
+        if node.lineno > end:
+            continue
+        if isinstance(stmt, compound) or isinstance(node.ctx, ast.Store):
+            return None  # in a block, or the name bound again
+        subscript = subscripted.get(id(node))
+        before_last = stmt.lineno < last_statement.lineno
+        if node.id == frame and id(node) in located:
+            if before_last:
+                written.add(located[id(node)])
+            continue
+        if node.id == frame:
+            if subscript is None:
+                return None  # the frame read as a whole would show the added columns
+            if isinstance(subscript.ctx, ast.Store) and before_last:
+                # written before the statement of the last read (Python reads that
+                # statement's value before it writes)
+                written.add(subscript.slice.value)  # type: ignore[attr-defined]
+        elif subscript is not None and isinstance(subscript.ctx, ast.Store):
+            changes_seen.add(node.lineno)
+        elif id(node) in relabelled:
+            relabels.append(relabelled[id(node)])
+            changes_seen.add(node.lineno)
+    if any(line > after and line not in changes_seen for line in change_lines):
+        return None  # changed in place another way (inplace=True, a call of a function)
+    return max(lines), written, relabels
 
 
 def _bindings(module: ast.Module | None) -> tuple[dict[str, list[int]], list[tuple[list[str], ast.AST]]]:

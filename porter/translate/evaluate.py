@@ -370,6 +370,9 @@ class Evaluator:
                 return self.dispatch(f"series.dt.isocalendar.{name}",
                                      PandasCall(accessor, name, node=node), node)
         receiver = self.eval(node.value)
+        if isinstance(receiver, Parts) and receiver.whole is not None \
+                and all(label != name for label, _ in receiver.fields):
+            receiver = receiver.whole  # parts kept as columns, read as a whole (parts.head())
         if isinstance(receiver, Module):
             qualname = f"{receiver.qualname}.{name}"
             if qualname in ("numpy.nan", "numpy.NaN", "pandas.NA", "pandas.NaT"):

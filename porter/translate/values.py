@@ -238,6 +238,9 @@ class Parts(Value):
     pandas: Code = field(kw_only=True)
     bound: bool = field(default=False, kw_only=True)
     binding: int | None = field(default=None, kw_only=True)  # the assignment that named it
+    # the result as a Polars frame, where its columns are kept in the text's frame
+    # (engine.parts_as_columns): what reads it as a whole (parts.head()) reads this
+    whole: "Frame | None" = field(default=None, kw_only=True)
 
 
 @dataclass(frozen=True)
