@@ -638,7 +638,9 @@ def group_fill(call: PandasCall, ctx: RuleContext) -> Value:
     .backward_fill(limit).over(keys).
 
     Handles: values are carried only within their group, at most `limit` rows; a missing key
-    gives a missing value (dropna=True), a missing key is a group of its own with dropna=False.
+    gives a missing value (dropna=True), a missing key is a group of its own with dropna=False;
+    an int column is float64 in pandas where a key is missing (Column.float_int), which a
+    column set from it follows (rules/assign.py typed_at_run_time).
     """
     grouped, column = _selected(call)
     ctx.reject_unknown(call, "limit", positional=1)
@@ -647,7 +649,9 @@ def group_fill(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported(f"limit={limit} (pandas fills nothing or raises)")
     method = "forward_fill" if call.name == "ffill" else "backward_fill"
     expr = column.code.method(method, **({"limit": limit} if limit is not None else {}))
-    return derived_column(column, _window(grouped, expr), dtype=column.dtype)
+    # an int column is float64 in pandas where a key is missing (that row's NaN)
+    return _key_missing_float(grouped, derived_column(column, _window(grouped, expr),
+                                                      dtype=column.dtype), column.nullable_int)
 
 
 # pandas' rank methods by their Polars names: "first" numbers ties in order of appearance
