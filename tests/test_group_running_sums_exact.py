@@ -3,9 +3,10 @@ digit, as pandas computes them (pandas is the reference).
 
 pandas adds a group's floats with a compensated (Kahan) running sum, where a plain running sum
 (Polars' cum_sum) drifts: ten 0.1s end at 1.0 in pandas and 0.9999999999999999 in a plain sum,
-and a casting log's running metal was written 8754.199999999999 for pandas' 8754.2. The
-checks compare the text each side writes: a CSV holds the shortest text that reads back as the
-same float, so equal text is the same number, bit for bit.
+and a casting log's running metal was written 8754.199999999999 for pandas' 8754.2. A rolling
+sum over a window of equal values is checked too: pandas gives the value times its count. The
+checks compare the text each side writes: a CSV holds the shortest text that reads back as
+the same float, so equal text is the same number, bit for bit.
 """
 
 from __future__ import annotations
@@ -134,3 +135,22 @@ def test_the_running_sum_is_one_readable_expression():
     assert 'pl.col("kg").rolling_sum(2 ** 31 - 1, min_samples=1)' in text
     assert ".to_pandas()" not in text and "map_batches" not in text
     assert max(len(line) for line in text.splitlines() if "rolling_sum" in line) <= 88
+
+
+def test_rolling_sums_of_equal_weights_are_pandas_products(tmp_path):
+    # pandas' rolling sum gives a window whose values are all equal that value times their
+    # count (five 2.2 kg crates: 11.0), where the sum as the window moves ends at
+    # 11.000000000000002
+    rng = np.random.default_rng(7)
+    weights = np.repeat(rng.choice([0.1, 0.7, 1.3, 2.2, 0.0, -0.0], 40), 8)
+    pickers = rng.choice(["Ava", "Émile", "Zoë"], len(weights))
+    csv = pd.DataFrame({"picker": pickers, "kg": weights}).to_csv(index=False)
+    same_text("""
+        import pandas as pd
+        log = pd.read_csv("picks.csv")
+        log["last5"] = log["kg"].rolling(5).sum()
+        log["near"] = log["kg"].rolling(5, center=True, min_periods=2).sum()
+        log["mine3"] = (log.groupby("picker")["kg"].rolling(3, min_periods=1).sum()
+                        .reset_index(level=0, drop=True))
+        log.to_csv("windows.csv", index=False)
+        """, tmp_path, {"picks.csv": csv})

@@ -1127,16 +1127,21 @@ def _aggregate_code(values: Code, how: str, options: dict[str, object], kind: st
         return flags.method("rolling_sum", *args, **kwargs)
     if how in ("std", "var") and ddof != 1:
         kwargs["ddof"] = ddof
-    if how == "mean":
-        # pandas' running mean gives a window whose values are all equal that value itself:
-        # the window's last one (-0.0 for 0.0, -0.0; 0.1 for three 0.1s, not 0.1000…02)
+    if how == "mean" or how == "sum" and kind == "rolling":
+        # pandas' running sum and mean count how many values in a row are equal: a window whose
+        # values all are gives that value times their count (sum: 2.2 * 5 is 11.0, where the
+        # sum as the window moves gives 11.000000000000002) or that value itself (mean: the
+        # window's last one, -0.0 for 0.0, -0.0; 0.1 for three 0.1s, not 0.1000…02)
         same = emit.binop(values.method("rolling_min", *args, **kwargs), "==",
                           values.method("rolling_max", *args, **kwargs))
         last = values.method("forward_fill")
         ahead = (int(args[0]) - 1) // 2 if kwargs.get("center") else 0  # type: ignore[call-overload]
         if ahead:  # a centred window ends (size - 1) // 2 rows further on
             last = last.method("shift", -ahead).method("forward_fill")
-        return emit.when(same, last, values.method("rolling_mean", *args, **kwargs))
+        if how == "sum":
+            count = values.method("is_not_null").method("cast", emit.atom("pl.Float64"))
+            last = last.method("mul", count.method("rolling_sum", *args, **kwargs))
+        return emit.when(same, last, values.method(f"rolling_{how}", *args, **kwargs))
     if how == "median":
         # pandas halves the sum of the two middle values of an even count, (a + b) / 2
         # (0.39999999999999997 for 0.7 and 0.1), where Polars' rolling_median gives 0.4
