@@ -25,9 +25,7 @@ from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
     mark_float_ints, nullable_mark, set_nullable_ints, with_column_updates,
 )
-from porter.rules.datetimes import NAT_DURATION_MARK, NAT_FLOAT_MARK
-from porter.rules.strings import LIST_STR, MISSING_MAKES_FLOAT, expanded_columns, list_repr
-from porter.rules.windows import MISSING_KEY_FLOAT
+from porter.rules.strings import LIST_STR, expanded_columns, list_repr
 from porter.translate.handover import (makes_periods, makes_python_ints, orders_categories,
                                        pandas_text, text_categories)
 from porter.translate.values import (
@@ -587,26 +585,20 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
     raise Unsupported("assigning to several columns or to a computed key")
 
 
-# integer results pandas makes float64 when a value is missing where they are computed (a date
-# part of NaT, the length of a missing text, a count in a group whose key is missing) and
-# keeps float64 after those rows are dropped
-_TYPED_AT_RUN_TIME = frozenset({NAT_FLOAT_MARK, NAT_DURATION_MARK, MISSING_MAKES_FLOAT,
-                                MISSING_KEY_FLOAT})
-
-
 def typed_at_run_time(frame: Frame, values: dict[str, Value]) -> Frame | None:
     """`frame` (just given the columns `values`) with each column whose pandas type depends on
-    missing values (a date part, a text length) given that type once it is computed: pandas'
-    dt.month is float64 when a date is missing then, int32 otherwise, and stays so when the
-    rows with the missing date are dropped later (written 3.0), which a lazy plan cannot pick
-    by value: the frame is computed there and those columns holding a missing value are made
+    missing values (Column.float_int: a date part, a text length, a count in a group whose key
+    is missing, a dict's map or get, where() or replace() with NaN) given that type once it is
+    computed: pandas' dt.month is float64 when a date is missing then, int32 otherwise, and
+    stays so when the rows with the missing date are dropped later (written 3.0), which a lazy
+    plan cannot pick by value: the frame is computed there and those columns holding a missing value are made
     Float64, as the frame a merge makes (rules/merge.py). Their dtype stays "int", porter's
     name for an integer column pandas makes float64 by its missing values (Frame.float_ints):
     what reads them as int (to_csv, astype(str), a reduction) gives the text of the Float64
     column for it, and a step that wants a number of another kind (pd.to_datetime of epoch
     numbers) stays a TODO as it was. None when no column needs it."""
     names = tuple(name for name, value in values.items()
-                  if isinstance(value, Column) and value.float_int in _TYPED_AT_RUN_TIME
+                  if isinstance(value, Column) and value.float_int is not None
                   and not value.nullable_int and value.dtype in ("int", None)
                   and value.frame.rows == frame.rows)
     if not names:
@@ -691,22 +683,34 @@ def assign(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("assign takes keywords only")
     from porter.rules.elementwise import frame_lambda
     pending: list[tuple[str, Code, str | None]] = []
-    made: set[str] = set()
+    made: dict[str, Value] = {}
     marks: dict[str, str | None] = {}  # pandas' nullable integers among them
     for name, value in call.kwargs.items():
         made_by_lambda = isinstance(value, Opaque) and isinstance(value.node, cst.Lambda)
         if made_by_lambda:
             # the lambda receives the frame with the earlier keywords' columns already in it
             value = frame_lambda(value.node, with_columns(frame, pending), ctx)  # type: ignore[union-attr]
-        if made_by_lambda and isinstance(value, Column) and value.refs & made:
-            frame = set_nullable_ints(with_columns(frame, pending), marks)
-            pending, made, marks = [], set(), {}
+        if made_by_lambda and isinstance(value, Column) and value.refs & set(made):
+            frame = _assigned(frame, pending, marks, made)
+            pending, made, marks = [], {}, {}
             value = _rebase(value, frame)
         code, dtype = value_expr(value, frame, ctx)
         pending.append((name, code, dtype))
-        made.add(name)
+        made[name] = value
         marks[name] = value_mark(value, ctx)
-    return set_nullable_ints(with_columns(frame, pending), marks)
+    return _assigned(frame, pending, marks, made)
+
+
+def _assigned(frame: Frame, items: list[tuple[str, Code, str | None]],
+              marks: dict[str, str | None], values: dict[str, Value]) -> Frame:
+    """One with_columns of assign's keywords, each column typed as df[name] = value types it:
+    an integer column pandas makes float64 by a missing value (Column.float_int) keeps the
+    mark, and is made Float64 where it is computed when it holds one (typed_at_run_time)."""
+    result = set_nullable_ints(with_columns(frame, items), marks)
+    for name, value in values.items():
+        if isinstance(value, Column) and value.float_int is not None:
+            result = mark_float_ints(result, [name], value.float_int)
+    return typed_at_run_time(result, values) or result
 
 
 def _rebase(column: Column, frame: Frame) -> Column:

@@ -291,8 +291,10 @@ def group_transform(call: PandasCall, ctx: RuleContext) -> Value:
     A body that reads the group only through reductions combined by Python operators
     (s.max() - s.min()) has each reduction .over(keys).
     Caveats: numpy functions, a body that reads anything but the group's column (another
-    column, the frame, its labels) are TODOs; an int column whose keys have a missing value is
-    float in pandas and stays integer in Polars (the values match).
+    column, the frame, its labels) are TODOs; an int result whose keys have a missing value is
+    float64 in pandas (Column.float_int): set as a column it is made Float64 where it holds a
+    missing value (rules/assign.py typed_at_run_time), kept on its own it stays integer and a
+    step that drops or fills the missing rows is 0.9.
     """
     grouped, column = _selected(call)
     function = call.arg("func", 0)
@@ -507,7 +509,8 @@ def group_cumulative(call: PandasCall, ctx: RuleContext) -> Value:
     """df.groupby(keys)[col].cumsum() / cumprod / cummax / cummin -> .cum_sum().over(keys).
 
     Handles: the running value restarts in each group and carries on past a missing value
-    (skipna); a missing key gives a missing value; the running sum of a True/False column
+    (skipna); a missing key gives a missing value; a running sum of floats has pandas' last
+    digits (compensated, _compensated_running_sum); the running sum of a True/False column
     counts the True values; a running minimum or maximum of floats keeps the zero it met
     first (-0.0 before 0.0), as pandas.
     Caveats: cumprod / cummax / cummin of True/False and the running sum of durations
@@ -533,9 +536,8 @@ def group_cumulative(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("a running sum of durations: where a key is missing, pandas' sum runs "
                           "on past a missing duration as a huge negative number")
     if call.name == "cumsum" and column.dtype in ("float", None):
-        ctx.lower("pandas' running sum within groups is compensated (Kahan), Polars' cum_sum a "
-                  "plain running sum: floats can differ in the last digit (ten 0.1s end at 1.0 "
-                  "in pandas, 0.9999999999999999 here)", 0.95)
+        return derived_column(column, _window(grouped, _compensated_running_sum(column.code, ctx)),
+                              dtype=column.dtype)
     running = column.code.method(CUMULATIVE[call.name])
     if column.dtype == "float" and call.name in ("cummax", "cummin"):
         running = _signed_zero_kept(column.code, call.name)
@@ -549,6 +551,23 @@ def group_cumulative(call: PandasCall, ctx: RuleContext) -> Value:
         return derived_column(column, _window(grouped, running, over=over), dtype=column.dtype)
     return _key_missing_float(grouped, derived_column(column, _window(grouped, running),
                                                       dtype=column.dtype), column.nullable_int)
+
+
+def _compensated_running_sum(values: Code, ctx: RuleContext) -> Code:
+    """pandas' running sum of floats within groups (group_cumsum) is compensated (Kahan): ten
+    0.1s end at 1.0 where a plain running sum (cum_sum) ends at 0.9999999999999999. Polars'
+    rolling_sum over a window as long as the column adds with the same compensation, bit for
+    bit (nothing ever leaves the window); it gives a missing row the sum so far, where pandas
+    gives that row NaN and carries on: the row is made missing. Once the sum is infinite
+    pandas' compensation turns NaN, and so does every later value of the group, where Polars
+    stays at inf: a row after an infinite sum is missing too, where the script may make
+    infinities (a division, an inf written out; as for the windows' infinities). A column of
+    unknown type that holds whole numbers stays whole (Int64 sums are exact), as pandas' int64."""
+    running = values.method("rolling_sum", WHOLE_COLUMN, min_samples=1)
+    conditions = [values.method("is_not_null")]
+    if ctx.infinities_possible:
+        conditions.append(running.method("shift").method("fill_null", 0).method("is_finite"))
+    return emit.pl("when", *conditions).method("then", running)
 
 
 def _missing_time_is_earliest(grouped: Grouped, column: Column, ctx: RuleContext) -> bool:
@@ -619,7 +638,9 @@ def group_fill(call: PandasCall, ctx: RuleContext) -> Value:
     .backward_fill(limit).over(keys).
 
     Handles: values are carried only within their group, at most `limit` rows; a missing key
-    gives a missing value (dropna=True), a missing key is a group of its own with dropna=False.
+    gives a missing value (dropna=True), a missing key is a group of its own with dropna=False;
+    an int column is float64 in pandas where a key is missing (Column.float_int), which a
+    column set from it follows (rules/assign.py typed_at_run_time).
     """
     grouped, column = _selected(call)
     ctx.reject_unknown(call, "limit", positional=1)
@@ -628,7 +649,9 @@ def group_fill(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported(f"limit={limit} (pandas fills nothing or raises)")
     method = "forward_fill" if call.name == "ffill" else "backward_fill"
     expr = column.code.method(method, **({"limit": limit} if limit is not None else {}))
-    return derived_column(column, _window(grouped, expr), dtype=column.dtype)
+    # an int column is float64 in pandas where a key is missing (that row's NaN)
+    return _key_missing_float(grouped, derived_column(column, _window(grouped, expr),
+                                                      dtype=column.dtype), column.nullable_int)
 
 
 # pandas' rank methods by their Polars names: "first" numbers ties in order of appearance
@@ -1104,16 +1127,21 @@ def _aggregate_code(values: Code, how: str, options: dict[str, object], kind: st
         return flags.method("rolling_sum", *args, **kwargs)
     if how in ("std", "var") and ddof != 1:
         kwargs["ddof"] = ddof
-    if how == "mean":
-        # pandas' running mean gives a window whose values are all equal that value itself:
-        # the window's last one (-0.0 for 0.0, -0.0; 0.1 for three 0.1s, not 0.1000…02)
+    if how == "mean" or how == "sum" and kind == "rolling":
+        # pandas' running sum and mean count how many values in a row are equal: a window whose
+        # values all are gives that value times their count (sum: 2.2 * 5 is 11.0, where the
+        # sum as the window moves gives 11.000000000000002) or that value itself (mean: the
+        # window's last one, -0.0 for 0.0, -0.0; 0.1 for three 0.1s, not 0.1000…02)
         same = emit.binop(values.method("rolling_min", *args, **kwargs), "==",
                           values.method("rolling_max", *args, **kwargs))
         last = values.method("forward_fill")
         ahead = (int(args[0]) - 1) // 2 if kwargs.get("center") else 0  # type: ignore[call-overload]
         if ahead:  # a centred window ends (size - 1) // 2 rows further on
             last = last.method("shift", -ahead).method("forward_fill")
-        return emit.when(same, last, values.method("rolling_mean", *args, **kwargs))
+        if how == "sum":
+            count = values.method("is_not_null").method("cast", emit.atom("pl.Float64"))
+            last = last.method("mul", count.method("rolling_sum", *args, **kwargs))
+        return emit.when(same, last, values.method(f"rolling_{how}", *args, **kwargs))
     if how == "median":
         # pandas halves the sum of the two middle values of an even count, (a + b) / 2
         # (0.39999999999999997 for 0.7 and 0.1), where Polars' rolling_median gives 0.4
