@@ -115,6 +115,37 @@ def pandas_group_sum(x):
     kept = x.fill_nan(None).drop_nulls()
     return kept.rolling_sum(2**40, min_samples=1).last().fill_null(0.0)
 '''
+# A transform("sum") / transform("mean") of floats: each group's total as the agg computes it
+# (pandas_group_sums: numpy's where the rows come sorted by the keys and no value is missing),
+# put back on the group's rows by a join on the keys.
+GROUP_SUM_OVER_FUNCTION = "pandas_group_sum_over"
+GROUP_SUM_OVER_DEFINITION = '''\
+def pandas_group_sum_over(x, *keys, mean=False):
+    """x.sum().over(keys) of floats (mean=True: the mean) as pandas' transform("sum") adds
+    each group: as its groupby().sum() does (pandas_group_sums: a compensated sum in row
+    order, or numpy's sum where the rows come sorted by the keys and no value is missing),
+    the total put on every row of the group; a row with a missing key gets none."""
+
+    def add(columns):
+        frame = pl.DataFrame(columns[1:]).with_columns(_values=columns[0])
+        names = frame.columns[:-1]
+        complete = ~pl.any_horizontal(pl.col(names).is_null())
+        ordered = pl.when(complete).then(pl.struct(names)).is_sorted() if len(names) > 1 \
+            else pl.col(names[0]).is_sorted()
+        totals = (
+            frame.lazy()
+            .with_columns(_in_key_order=ordered)
+            .filter(complete)
+            .group_by(names)
+            .agg(pl.col("_values"), pl.col("_in_key_order").first())
+            .select(*names, pandas_group_sums(pl.col("_values"), mean=mean,
+                                              in_key_order=pl.col("_in_key_order")).alias("_total"))
+        )
+        joined = frame.lazy().join(totals, on=names, how="left", maintain_order="left")
+        return joined.collect().get_column("_total")
+
+    return pl.map_batches([x, *(pl.col(k) for k in keys)], add, return_dtype=pl.Float64)
+'''
 GROUP_MEAN_FUNCTION = "pandas_group_mean"
 GROUP_MEAN_DEFINITION = '''\
 def pandas_group_mean(x):

@@ -18,7 +18,9 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.elementwise import _checked, body_expression, function_value
-from porter.rules.groupby import agg_expr, group_order
+from porter.rules.groupby import (
+    GROUP_MEAN_FUNCTION, GROUP_SUM_FUNCTION, GROUP_SUM_OVER_FUNCTION, agg_expr, group_order,
+)
 from porter.rules.io_options import QUANTILE_FUNCTION
 from porter.rules.ops import abs_, float32_possible, round_
 from porter.translate import handover
@@ -325,8 +327,26 @@ def group_transform(call: PandasCall, ctx: RuleContext) -> Value:
         else agg_expr(column.code, how, column.dtype, float32=float32_possible(ctx))
     dtype = "int" if how in ("count", "nunique", "size") or how == "sum" and column.dtype == "bool" \
         else "float" if how in ("mean", "median", "std", "var") else column.dtype
-    return _key_missing_float(grouped, derived_column(column, _window(grouped, expr), dtype=dtype),
-                              column.nullable_int)
+    over = _group_sum_over(grouped, expr, how, column.code)
+    return _key_missing_float(grouped, derived_column(column, _window(grouped, expr, over=over),
+                                                      dtype=dtype), column.nullable_int)
+
+
+def _group_sum_over(grouped: Grouped, expr: Code, how: str, values: Code) -> Code | None:
+    """transform("sum" | "mean") of floats where pandas may add a group with numpy's sum (the
+    rows sorted by the keys, no value missing; see in_key_order_flag): the total the agg would
+    give, put on each row (pandas_group_sum_over); None to keep the window."""
+    if how not in ("sum", "mean") or not expr.text.startswith(f"{GROUP_SUM_FUNCTION}(") \
+            and not expr.text.startswith(f"{GROUP_MEAN_FUNCTION}("):
+        return None
+    frame = grouped.frame
+    if not grouped.sort or grouped.prepared or not grouped.dropna \
+            or frame.columns is None or any(k not in frame.columns for k in grouped.keys) \
+            or any(frame.dtype(k) not in ("str", "int", "datetime", "date", "bool")
+                   for k in grouped.keys):
+        return None
+    options = {"mean": True} if how == "mean" else {}
+    return emit.call(GROUP_SUM_OVER_FUNCTION, values, *grouped.keys, **options)
 
 
 # the group's frame inside a transform function: code that reads it as a frame (a collected

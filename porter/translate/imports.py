@@ -18,6 +18,7 @@ from porter.rules.selection import (
 )
 from porter.rules.groupby import (
     GROUP_MEAN_DEFINITION, GROUP_MEAN_FUNCTION, GROUP_SUM_DEFINITION, GROUP_SUM_FUNCTION,
+    GROUP_SUM_OVER_DEFINITION, GROUP_SUM_OVER_FUNCTION,
     GROUP_SUMS_DEFINITION, GROUP_SUMS_FUNCTION,
     MEAN_DEFINITION, MEAN_FUNCTION, TEXT_ARRAY_DEFINITION, TEXT_ARRAY_FUNCTION,
     TEXT_VALUES_DEFINITION, TEXT_VALUES_FUNCTION,
@@ -73,6 +74,8 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
     used = names_used(module)
     if GROUP_MEAN_FUNCTION in used:
         used.add(GROUP_SUM_FUNCTION)  # the mean's definition calls it
+    if GROUP_SUM_OVER_FUNCTION in used:
+        used.add(GROUP_SUMS_FUNCTION)  # the window sum's definition calls it
     needs_polars = "pl" in used and not facts.has_polars_as_pl
     pandas_names = {n for n, q in facts.names.items() if q == "pandas" or q.startswith("pandas.")}
     unused = pandas_names - used
@@ -128,6 +131,7 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (UPPER_FUNCTION, UPPER_DEFINITION),
                                  (TITLE_FUNCTION, TITLE_DEFINITION),
                                  (GROUP_SUM_FUNCTION, GROUP_SUM_DEFINITION),
+                                 (GROUP_SUM_OVER_FUNCTION, GROUP_SUM_OVER_DEFINITION),
                                  (GROUP_SUMS_FUNCTION, GROUP_SUMS_DEFINITION),
                                  (GROUP_MEAN_FUNCTION, GROUP_MEAN_DEFINITION),
                                  (MEAN_FUNCTION, MEAN_DEFINITION),
