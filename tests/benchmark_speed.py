@@ -2,6 +2,7 @@
 
     .venv/bin/python tests/benchmark_speed.py [--rows 1000000] [--runs 3] [-k name]
                                               [--out docs/performance.md]
+    (-k a,b: the scenarios whose name contains a or b)
 
 For each corpus scenario, porter converts the script with `--data` on the shipped sample (as a
 user with a sample would), then the scenario's data is scaled up: the larger tables (the ones
@@ -173,12 +174,13 @@ def main() -> int:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--rows", type=int, default=1_000_000)
     parser.add_argument("--runs", type=int, default=3, help="timed runs per side (median)")
-    parser.add_argument("-k", default="", help="only scenarios whose name contains this")
+    parser.add_argument("-k", default="", help="only scenarios whose name contains this (several "
+                        "separated by commas: any of them)")
     parser.add_argument("--out", default=str(ROOT / "docs" / "performance.md"))
     args = parser.parse_args()
     results = []
     for case in sorted(p for p in CORPUS.iterdir() if (p / "data").is_dir()):
-        if args.k not in case.name:
+        if not any(part in case.name for part in args.k.split(",")):
             continue
         with tempfile.TemporaryDirectory(prefix="porter-speed-") as tmp:
             result = bench(case, args.rows, args.runs, Path(tmp))

@@ -1219,6 +1219,65 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
                   refs=frozenset({result_name}))
 
 
+@rule("frame.value_counts")
+def frame_value_counts(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.value_counts(subset) -> the rows' distinct combinations counted, most frequent first.
+
+    Handles: pandas 3.1 groups without sorting (sort=False: the combinations in order of first
+    appearance) and sorts the counts stably, so ties keep that order; a row with a missing
+    value is not counted (dropna=True), a missing value is a key of its own with dropna=False;
+    normalize=True gives "proportion"; ascending=True; sort=False; 0.0 and -0.0 counted as one
+    value shown as the one met first.
+    Caveats: a Categorical column (pandas counts every category, unused ones as 0) and a
+    column named "count" ("proportion") are TODOs.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "subset", "normalize", "sort", "ascending", "dropna", positional=1)
+    subset = call.const("subset", 0, None, kinds=(str, list, tuple))
+    if subset is None:
+        if frame.columns is None:
+            raise Unsupported("the frame's columns are not known (convert with --data)")
+        names = list(frame.columns)
+    else:
+        names = [subset] if isinstance(subset, str) else list(subset)
+    if not names or not all(isinstance(n, str) for n in names):
+        raise Unsupported("subset is not a list of column names")
+    if frame.columns is not None and any(n not in frame.columns for n in names):
+        raise Unsupported("a name in subset is not a column (pandas raises KeyError)")
+    normalize = call.const("normalize", None, False, kinds=(bool,))
+    result_name = "proportion" if normalize else "count"
+    if result_name in names:
+        raise Unsupported(f"a column named {result_name!r}: pandas keeps it in the index beside "
+                          "the counts of that name, which no Polars frame can hold")
+    if any(frame.dtype(n) in ("category", None) for n in names):
+        raise Unsupported("a column of a type porter does not know, or a Categorical (pandas "
+                          "counts every category, unused ones as 0)")
+    code = frame.code.method("select", *names)
+    if call.const("dropna", None, True, kinds=(bool,)):
+        code = code.method("drop_nulls")
+    floats = [n for n in names if frame.dtype(n) == "float"]
+    if floats:
+        # 0.0 and -0.0 are one key: pandas shows the one it met first
+        code = code.method("with_columns", *(emit.col(n).method("first").method("over", n)
+                                             for n in floats))
+    counts = code.method("group_by", names, maintain_order=True).method(
+        "agg", emit.pl("len").method("cast", emit.atom("pl.Int64")).method("alias", "count"))
+    if call.const("sort", None, True, kinds=(bool,)):
+        descending = not call.const("ascending", None, False, kinds=(bool,))
+        counts = counts.method("sort", "count", **({"descending": True} if descending else {}),
+                               maintain_order=True)
+    if normalize:
+        # divided value by value, as pandas divides (see series.arith)
+        counts = counts.method("select", *(emit.col(n) for n in names), emit.call(
+            DIVIDE_FUNCTION, emit.col("count"), emit.col("count").method("sum")).method(
+            "alias", "proportion"))
+    result = Frame(counts, columns=(*names, result_name), index=tuple(names), labels_intact=False,
+                   dtypes=tuple((n, frame.dtype(n)) for n in names if frame.dtype(n) is not None))
+    return Column(emit.col(result_name), frame=result, name=result_name,
+                  dtype="float" if normalize else "int", refs=frozenset({result_name}))
+
+
 # the distinct texts of a column as pandas' unique() gives them, pandas imported only for nan
 TEXT_VALUES_FUNCTION = "pandas_text_values"
 TEXT_VALUES_DEFINITION = '''\
