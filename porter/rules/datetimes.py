@@ -9,6 +9,7 @@ from __future__ import annotations
 from dataclasses import dataclass, field, replace
 from fractions import Fraction
 import re
+from typing import Any
 
 from porter.emit import code as emit
 from porter.emit.code import Code
@@ -427,14 +428,20 @@ def _date_constant(call: PandasCall, text: object, fmt: str | None, ctx: RuleCon
         raise ctx.todo("a date with a time zone")
     if stamp.nanosecond:
         raise ctx.todo("a date with nanoseconds (porter's datetimes hold microseconds)")
-    parts = [stamp.year, stamp.month, stamp.day, stamp.hour, stamp.minute, stamp.second,
-             stamp.microsecond]
-    while len(parts) > 3 and parts[-1] == 0:
-        parts.pop()
+    parts = stamp_parts(stamp)
     assert call.node is not None
     import libcst as cst
     original = Code(cst.Module([]).code_for_node(call.node))
     return Scalar(original, pytype="datetime", expr=emit.pl("datetime", *parts))
+
+
+def stamp_parts(stamp: Any) -> list[int]:
+    """A Timestamp's year, month, day, then its time down to the last part that is not 0."""
+    parts = [stamp.year, stamp.month, stamp.day, stamp.hour, stamp.minute, stamp.second,
+             stamp.microsecond]
+    while len(parts) > 3 and parts[-1] == 0:
+        parts.pop()
+    return parts
 
 
 _ISO = {"year": ("iso_year", "Int32"), "week": ("week", "UInt32"), "day": ("weekday", "UInt32")}

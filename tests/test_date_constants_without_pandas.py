@@ -1,0 +1,56 @@
+"""A date or a duration written as a module constant (`START = pd.Timestamp("2024-11-15")`,
+`pd.Timedelta(days=1)`) and used only beside Polars expressions becomes Python's datetime
+(timedelta), which Polars reads as the same literal: the conversion no longer imports pandas
+for it. pandas (the reference) runs each script; the conversion runs with Polars; both write the
+same text.
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+from support import same_text
+
+SHIFTS = """\
+day,start,kg
+2024-11-15,2024-11-15 06:00,12.5
+2024-11-16,2024-11-16 22:30,
+2024-12-01,2024-12-01 05:15,3.0
+,2024-12-02 07:00,4.5
+"""
+
+BODY = '''
+shifts = pd.read_csv("shifts.csv", parse_dates=["day", "start"])
+shifts["season_day"] = (shifts["day"] - SEASON_START).dt.days
+shifts["late"] = shifts["start"] > shifts["day"] + LATE
+shifts = shifts[shifts["day"] >= SEASON_START]
+shifts.to_csv("out.csv", index=False)
+'''
+
+
+def test_constants_used_beside_polars_expressions_need_no_pandas(tmp_path: Path) -> None:
+    text = same_text('import pandas as pd\n\nSEASON_START = pd.Timestamp("2024-11-15")\n'
+                     'LATE = pd.Timedelta(hours=20, minutes=30)\n' + BODY,
+                     tmp_path, {"shifts.csv": SHIFTS}).converted_text
+    assert "import pandas" not in text, text
+    assert "SEASON_START = datetime.datetime(2024, 11, 15)" in text
+    assert "pd.Timedelta" not in text
+    assert text.index("import datetime") < text.index("import polars")
+
+
+def test_a_constant_python_also_uses_stays_a_timestamp(tmp_path: Path) -> None:
+    # printed, a Timestamp and a datetime read alike, but its repr, its methods (normalize,
+    # dayofweek) and its arithmetic with other Timestamps differ: kept as pandas wrote it
+    text = same_text('import pandas as pd\n\nSEASON_START = pd.Timestamp("2024-11-15")\n'
+                     'LATE = pd.Timedelta(hours=20)\n' + BODY + 'print(SEASON_START.dayofweek)\n',
+                     tmp_path, {"shifts.csv": SHIFTS}).converted_text
+    assert 'SEASON_START = pd.Timestamp("2024-11-15")' in text
+    assert "pd.Timedelta" not in text
+
+
+def test_a_script_naming_datetime_itself_keeps_its_constants(tmp_path: Path) -> None:
+    text = same_text('from datetime import datetime\nimport pandas as pd\n\n'
+                     'SEASON_START = pd.Timestamp("2024-11-15")\nLATE = pd.Timedelta(hours=20)\n'
+                     + BODY + 'print(datetime(2024, 1, 1).year)\n',
+                     tmp_path, {"shifts.csv": SHIFTS}).converted_text
+    assert 'SEASON_START = pd.Timestamp("2024-11-15")' in text
