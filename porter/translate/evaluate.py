@@ -1219,7 +1219,7 @@ _ELEMENT_PREFIXES = ("series.str.", "series.dt.", "element.")
 
 
 def _imports_math(module: Any) -> bool:
-    """Whether the script's top level has `import math` (the name not taken by another import)."""
+    """Whether the script's top level has `import math`."""
     body = getattr(module, "body", ())
     return any(isinstance(stmt, ast.Import) and any(a.name == "math" and a.asname is None
                                                      for a in stmt.names) for stmt in body)
