@@ -43,8 +43,8 @@ print("after dropping repeats:", len(log))
 
 # batch number: 'LD-0042' / 'ld 42' / 'LD42' -> 'LD-0042'
 num = log["batch"].str.extract(r"(?i)^(ld)[\s-]?(\d+)$")
-log["batch_no"] = num[1].astype(int)
 log["batch"] = num[0].str.upper() + "-" + num[1].str.zfill(4)
+log["batch_no"] = num[1].astype(int)
 
 # two ways of writing the start
 started = pd.to_datetime(log["started"], format="%Y-%m-%d %H:%M", errors="coerce")
