@@ -6,7 +6,7 @@ arithmetic is followed by fill_nan(None)), so pandas' "missing" is Polars' null 
 
 from __future__ import annotations
 
-from dataclasses import replace
+from dataclasses import dataclass, field, fields, replace
 
 import libcst as cst
 
@@ -14,10 +14,11 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import (
-    MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
+    MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, column_of, derive,
+    derived_column,
 )
 from porter.translate.values import (
-    NOT_NULLABLE, Column, Frame, Opaque, PandasValue, Scalar, Value,
+    NOT_NULLABLE, Column, Frame, Opaque, PandasValue, Scalar, Value, fresh_token,
 )
 
 
@@ -52,6 +53,83 @@ def pd_isna(call: PandasCall, ctx: RuleContext) -> Value:
                           "ported")
     method = "is_null" if call.name in ("isna", "isnull") else "is_not_null"
     return derived_column(value, value.code.method(method), dtype="bool")
+
+
+@dataclass(frozen=True)
+class MissingMask(Frame):
+    """df.isna() / df.notna(): pandas' frame of True/False, one column per column of `source`.
+    As a frame it is what Polars computes (`code`: source.select(pl.col(names).is_null())),
+    each column a new version, so none is read as the column it was made from. Its methods
+    are keys `frame.isna.<method>`: the row-wise any / all / sum are expressions of `source`
+    (pl.any_horizontal(pl.col(names).is_null())); the rest are TODOs handing the mask over."""
+
+    source: Frame = field(kw_only=True)
+    names: tuple[str, ...] = field(kw_only=True)
+    test: str = field(kw_only=True)  # is_null / is_not_null
+    key_prefix: str = field(default="frame.isna", kw_only=True)
+
+
+@rule("frame.isna", "frame.isnull", "frame.notna", "frame.notnull")
+def frame_isna(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.isna() / df.notna() -> df.select(pl.col(names).is_null() / .is_not_null()).
+
+    Handles: a frame of True/False with pandas' columns (NaN, None and NaT are missing; a
+    text "" is not: porter's frames hold no NaN, so missing is null); its any(axis=1),
+    all(axis=1) and sum(axis=1) are expressions of the frame (keys frame.isna.*).
+    Caveats: a frame whose columns are not known or that holds an index of its own is a TODO.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call)
+    if frame.columns is None or not frame.columns:
+        raise Unsupported("the frame's columns are not known")
+    if frame.index:
+        raise Unsupported("a frame with an index of its own")
+    names = tuple(frame.columns)
+    test = "is_null" if call.name in ("isna", "isnull") else "is_not_null"
+    code = frame.code.method("select", emit.col(emit.names_arg(names)).method(test))
+    # pandas' isna gives numpy booleans, whatever the column's type (no nullable ones)
+    mask = derive(frame, code, same_rows=True, columns=names,
+                  dtypes=tuple((c, "bool") for c in names),
+                  versions=tuple((c, fresh_token()) for c in names), float_ints=(),
+                  nullable_ints=None if frame.nullable_ints is None else (), unsure_ints=())
+    return MissingMask(**{f.name: getattr(mask, f.name) for f in fields(Frame)},
+                       source=frame, names=names, test=test)
+
+
+@rule("frame.isna.any", "frame.isna.all", "frame.isna.sum")
+def missing_mask_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
+    """df[cols].isna().any(axis=1) / .all(axis=1) / .sum(axis=1) -> pl.any_horizontal /
+    pl.all_horizontal / pl.sum_horizontal of pl.col(cols).is_null() (is_not_null for notna).
+
+    Handles: the mask holds no missing values, so skipna, bool_only and numeric_only change
+    nothing; sum counts per row (Int64, as pandas' int64), min_count up to the number of
+    columns.
+    Caveats: per-column results (axis=0) and axis=None are TODOs (pandas gives a Series
+    indexed by column name, or one value), as are min_count above the number of columns.
+    """
+    mask = call.receiver
+    if not isinstance(mask, MissingMask):
+        raise Unsupported("not a mask made by isna() / notna()")
+    extra = ["skipna", "numeric_only", "min_count"] if call.name == "sum" else ["skipna", "bool_only"]
+    ctx.reject_unknown(call, "axis", *extra, positional=1)
+    if call.const("axis", 0, 0, kinds=(int, str, type(None))) not in (1, "columns"):
+        raise Unsupported(f"a {call.name} per column (axis=0) or of the whole frame: "
+                          "per-column counts are lf.null_count()")
+    for flag in extra:
+        if flag != "min_count":
+            call.const(flag, None, False, kinds=(bool,))
+    if call.const("min_count", None, 0, kinds=(int,)) > len(mask.names):
+        raise Unsupported("min_count above the number of columns: every row is NaN")
+    source = mask.source
+    columns = [column_of(source, c) for c in mask.names]
+    tests = emit.col(emit.names_arg(mask.names)).method(mask.test)
+    code = emit.pl(f"{call.name}_horizontal", tests)
+    if call.name == "sum":
+        code = code.method("cast", emit.atom("pl.Int64"))  # a count of True: UInt32 in Polars
+    base = Column(emit.pl("lit", None), frame=source, name=None)
+    return derived_column(base, code, dtype="int" if call.name == "sum" else "bool", name=None,
+                          others=columns)
 
 
 def _subset(call: PandasCall, frame: Frame) -> list[str] | None:

@@ -22,7 +22,8 @@ from porter.rules import rule
 from porter.rules.datetimes import is_timedelta, timedelta_arithmetic
 from porter.rules.io_options import DIVIDE_FUNCTION
 from porter.translate.context import (
-    MIXED_COLUMN, PandasCall, RuleContext, Unsupported, derive, derived_column, value_dtype,
+    MIXED_COLUMN, PandasCall, RuleContext, Unsupported, check_same_rows, derive, derived_column,
+    value_dtype,
 )
 from porter.translate.handover import to_pandas
 from porter.translate.values import Column, Frame, Opaque, PandasValue, Scalar, Value
@@ -36,10 +37,26 @@ def base_column(*values: Value) -> Column:
         # dt.to_period() kept in a frame as the periods' text: pandas compares and adds periods
         # ("2024-3" == 2024-03, month + 1 is the next month), not text
         raise Unsupported("a column of periods, held as their text: operators on it stay pandas")
-    for value in values:
-        if isinstance(value, Column):
-            return value
-    raise Unsupported("no column among the operands")
+    columns = [v for v in values if isinstance(v, Column)]
+    if not columns:
+        raise Unsupported("no column among the operands")
+    first = columns[0]
+    for candidate in columns:
+        # operands of the same rows taken at different points (names[1], split before
+        # runs["surname"] was added, beside runs["surname"]): the expressions are read in the
+        # newest frame, the one that holds the column versions of every operand
+        if candidate.frame.rows == first.frame.rows \
+                and all(_readable_in(c, candidate.frame) for c in columns):
+            return first if candidate.frame is first.frame else replace(first, frame=candidate.frame)
+    return first
+
+
+def _readable_in(column: Column, frame: Frame) -> bool:
+    try:
+        check_same_rows(column, frame)
+    except Unsupported:
+        return False
+    return True
 
 
 def operand(value: Value, frame: Frame, ctx: RuleContext, *, as_bool: bool = False) -> Code:

@@ -1491,13 +1491,17 @@ class _Walker:
         """`name` is about to hold other rows: a Series kept as an expression of it would then
         read the new rows. The next pass keeps such a Series as a frame of its own."""
         here = self.services.statement_lines[1]
+        # in a loop, a read earlier in its body comes after this statement too (the next round);
+        # a read before the loop does not
+        span = self.spans[0] if self.loop_depth and self.spans else (here + 1, here)
         for held, value in env.items():
             if isinstance(value, Column) and value.binding is not None \
                     and value.frame.code.text == name \
                     and (value.frame.rows != frame.rows
                          or any(frame.version(c) != v for c, v in value.versions)) \
-                    and (self.loop_depth or self.function is not None
-                         or any(line > here for line in self.services.name_lines.get(held, ()))):
+                    and (self.function is not None
+                         or any(line > here or span[0] <= line <= span[1]
+                                for line in self.services.name_lines.get(held, ()))):
                 # other rows, or a column it reads overwritten or renamed (a fresh version)
                 self.services.stale_series.add(value.binding)
 
