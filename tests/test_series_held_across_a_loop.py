@@ -73,3 +73,18 @@ def test_series_read_after_the_loop_keeps_the_values_it_had() -> None:
         result = log
         """)
 
+
+
+def test_a_loop_over_named_columns_keeps_the_frames_columns_known(folder: Path) -> None:
+    # each round overwrites one of the listed columns: afterwards the frame still has the same
+    # columns, so a slice of column labels (loc[:, "first":"morning"]) is read from them
+    result = differential("""
+        import pandas as pd
+        WATCHES = ["first", "middle", "morning"]
+        log = pd.read_csv("log.csv").drop_duplicates()
+        for w in WATCHES:
+            log[w] = log[w].fillna(0)
+        log["hours"] = log.loc[:, "first":"morning"].sum(axis=1)
+        result = log.reset_index(drop=True)
+        """, data_dir=str(folder))
+    assert not result.todos, result.converted_text

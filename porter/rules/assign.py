@@ -580,6 +580,9 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(key, Opaque) and not key.is_const and key.pytype == "str":
         code, _ = value_expr(value, frame, ctx)
         new = frame.code.method("with_columns", code.method("alias", key.code))
+        if key.choices and frame.columns is not None and set(key.choices) <= set(frame.columns):
+            # a loop over names of the frame's columns: one of them is overwritten each round
+            return with_column_updates(frame, new, dict.fromkeys(key.choices))
         return with_column_updates(frame, new, {}) if frame.columns is None else \
             derive(frame, new, same_rows=True, columns=None)
     raise Unsupported("assigning to several columns or to a computed key")

@@ -481,8 +481,10 @@ class _Walker:
             changes["iter"] = self.header(stmt.iter, env, stmt, iter_value)
             loop_env = dict(env)
             pytype = "str" if _iterates_names(iter_value) else None
+            names = tuple(iter_value.const) if pytype == "str" and isinstance(iter_value, Opaque) \
+                and iter_value.is_const and isinstance(stmt.target, cst.Name) else ()
             for name in _target_names(stmt.target):
-                loop_env[name] = Opaque(emit.atom(name), pytype=pytype)
+                loop_env[name] = Opaque(emit.atom(name), pytype=pytype, choices=names)
             if isinstance(iter_value, Scalar) and iter_value.items == "text" \
                     and isinstance(stmt.target, cst.Name):
                 # pandas' text, nan for a missing one: null again inside Polars expressions
