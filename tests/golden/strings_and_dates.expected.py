@@ -127,20 +127,15 @@ visits = pl.scan_csv(
 visits = visits.with_columns(
     name=pandas_title(pl.col("name").str.strip_chars(PANDAS_WHITESPACE)),
 )
-visits = (
-    visits
-    .with_columns(
-        day=pl.when(
-            pl.col("day")
-            .str.contains(
-                "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
-            ),
-        )
-        .then(pl.col("day"))
-        .str.to_datetime("%Y-%m-%d", time_unit="us", strict=False),
+visits = visits.with_columns(
+    day=pl.when(
+        pl.col("day")
+        .str.contains(
+            "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
+        ),
     )
-    .collect()
-    .lazy()
+    .then(pl.col("day"))
+    .str.to_datetime("%Y-%m-%d", time_unit="us", strict=False),
 )
 visits = (
     visits

@@ -452,12 +452,7 @@ def main():
         paid=pl.col("paid").fill_null(0),
         payments=pl.col("payments").fill_null(0),
     )
-    ledger = (
-        ledger
-        .with_columns(balance=(pl.col("fee") - pl.col("paid")).round(2))
-        .collect()
-        .lazy()
-    )
+    ledger = ledger.with_columns(balance=(pl.col("fee") - pl.col("paid")).round(2))
     ledger = (
         ledger
         .with_columns(label_length=pl.col("plot_label").str.len_chars().cast(pl.Int64))

@@ -279,6 +279,9 @@ sales = (
         waste_units=pl.col("waste_units").fill_null(0),
     )
     .collect()
+    .pipe(
+        lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("day",) if t[c].has_nulls()]),
+    )
     .lazy()
 )
 

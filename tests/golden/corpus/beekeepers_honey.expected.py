@@ -414,8 +414,6 @@ def main():
         .drop("_porter_rows_in_key_order")
         .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
         .sort("apiary")
-        .collect()
-        .lazy()
     )
     per_apiary = (
         per_apiary

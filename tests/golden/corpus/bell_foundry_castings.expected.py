@@ -339,11 +339,10 @@ castings = castings.with_columns(
 castings = castings.with_columns(ready_day=pl.col("ready_at").dt.truncate("1d"))
 
 # In[5]: each furnace's run: gap between pours, running metal since the first pour, rank of the yield
-castings = (
-    castings
-    .sort(["furnace", "cast_at", "cast_no"], nulls_last=True, maintain_order=True)
-    .collect()
-    .lazy()
+castings = castings.sort(
+    ["furnace", "cast_at", "cast_no"],
+    nulls_last=True,
+    maintain_order=True,
 )
 castings = (
     castings
@@ -367,7 +366,18 @@ castings = castings.with_columns(
 )
 castings = castings.with_columns(
     metal_to_date=pl.when(pl.col("furnace").is_not_null())
-    .then(pl.col("metal_kg").cum_sum().over("furnace")),
+    .then(
+        pl.when(
+            pl.col("metal_kg").is_not_null(),
+            pl.col("metal_kg")
+            .rolling_sum(2 ** 31 - 1, min_samples=1)
+            .shift()
+            .fill_null(0)
+            .is_finite(),
+        )
+        .then(pl.col("metal_kg").rolling_sum(2 ** 31 - 1, min_samples=1))
+        .over("furnace"),
+    ),
 )
 castings = castings.with_columns(
     yield_rank=pl.when(pl.col("furnace").is_not_null())
@@ -579,12 +589,7 @@ moulders = (
     .with_columns(pandas_group_sums(pl.col("mean_cents"), mean=True, floats=False))
     .sort("moulder", nulls_last=True)
 )
-moulders = (
-    moulders
-    .with_columns(mean_cents=pl.col("mean_cents").round(1))
-    .collect()
-    .lazy()
-)
+moulders = moulders.with_columns(mean_cents=pl.col("mean_cents").round(1))
 moulders = (
     moulders
     .with_columns(

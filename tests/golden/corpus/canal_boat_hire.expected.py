@@ -198,14 +198,9 @@ hires = hires.with_columns(
     meter=pl.when(pl.col("boat").is_not_null())
     .then(pl.col("meter_hours").forward_fill().over("boat")),
 )
-hires = (
-    hires
-    .with_columns(
-        engine_hours=pl.when(pl.col("boat").is_not_null())
-        .then(pl.col("meter").diff().over("boat")),
-    )
-    .collect()
-    .lazy()
+hires = hires.with_columns(
+    engine_hours=pl.when(pl.col("boat").is_not_null())
+    .then(pl.col("meter").diff().over("boat")),
 )
 hires = (
     hires
@@ -220,7 +215,18 @@ hires = (
 )
 hires = hires.with_columns(
     hours_to_date=pl.when(pl.col("boat").is_not_null())
-    .then(pl.col("engine_hours").cum_sum().over("boat")),
+    .then(
+        pl.when(
+            pl.col("engine_hours").is_not_null(),
+            pl.col("engine_hours")
+            .rolling_sum(2 ** 31 - 1, min_samples=1)
+            .shift()
+            .fill_null(0)
+            .is_finite(),
+        )
+        .then(pl.col("engine_hours").rolling_sum(2 ** 31 - 1, min_samples=1))
+        .over("boat"),
+    ),
 )
 hires = hires.with_columns(fuel_litres=pl.col("fuel_litres").clip(0, 110))
 hires = hires.with_columns(

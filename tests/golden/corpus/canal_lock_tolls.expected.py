@@ -428,7 +428,7 @@ def main():
         "tariff lines",
     )
 
-    priced = price(passages, tariffs).collect().lazy()
+    priced = price(passages, tariffs)
     priced = (
         priced
         .with_columns(month=pl.col("passed_at").dt.month().cast(pl.Int32))

@@ -285,7 +285,7 @@ wheels = wheels.with_columns(
     .fill_nan(None)
     .round(2),
 )
-wheels = wheels.with_columns(loss_pct=pl.col("loss_pct").clip(0, None)).collect().lazy()
+wheels = wheels.with_columns(loss_pct=pl.col("loss_pct").clip(0, None))
 wheels = (
     wheels
     .with_columns(made_month=pl.col("made_on").dt.month().cast(pl.Int32))

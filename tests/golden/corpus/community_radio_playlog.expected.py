@@ -1,7 +1,6 @@
 # community radio -- play log for the music rights return and the volunteers' rota
 # copied out of the station notebook, run from the station PC
 import numpy as np
-import pandas as pd
 import polars as pl
 
 # Text that pandas' read_csv reads as a missing value.
@@ -432,7 +431,7 @@ plays = plays.with_columns(
     .fill_null(pl.lit("-")),
 )
 
-plays = plays.with_columns(day=pl.col("aired").dt.truncate("1d")).collect().lazy()
+plays = plays.with_columns(day=pl.col("aired").dt.truncate("1d"))
 plays = (
     plays
     .with_columns(dow=pl.col("aired").dt.weekday().cast(pl.Int32) - 1)
@@ -481,8 +480,6 @@ ret = (
     )
     .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort(["artist", "title"], nulls_last=True)
-    .collect()
-    .lazy()
 )
 ret = (
     ret
@@ -532,9 +529,11 @@ ret = (
 print(ret.head(10).collect())
 
 # -- every day of the period, with the days nothing was logged
-# TODO(porter): pd.date_range: porter has no rule for this API yet
-# TODO(porter): pd.DataFrame: building a frame from another pandas object
-days = pd.DataFrame({"day": pd.date_range("2024-02-26", "2024-04-06", freq="D")})
+days = pl.LazyFrame(
+    {
+        "day": pl.datetime_range(pl.datetime(2024, 2, 26), pl.datetime(2024, 4, 6), "1d", eager=True),
+    },
+)
 per_day = (
     plays
     .with_columns(_porter_rows_in_key_order=pl.col("day").is_sorted())
@@ -557,14 +556,41 @@ per_day = (
     .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("day")
 )
-# TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
-#   pandas with .collect().to_pandas(); port that code to take a Polars frame
-per_day = days.merge(per_day.collect().to_pandas(), on="day", how="left")
-per_day["n"] = per_day["n"].fillna(0).astype(int)
-per_day["hours"] = (per_day["secs"] / 3600).round(2)
-per_day["weekend"] = per_day["day"].dt.dayofweek >= 5
-per_day["month_end"] = per_day["day"].dt.is_month_end
-per_day.to_csv("data/days.csv", index=False)
+per_day = (
+    days
+    .join(per_day, on="day", how="left", nulls_equal=True, maintain_order="left_right")
+    .collect()
+    .pipe(
+        lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("n", "nights") if t[c].has_nulls()]),
+    )
+    .lazy()
+)
+per_day = per_day.with_columns(n=pl.col("n").fill_null(0).cast(pl.Int64))
+per_day = per_day.with_columns(hours=pandas_div(pl.col("secs"), 3600).round(2))
+per_day = per_day.with_columns(
+    weekend=(pl.col("day").dt.weekday().cast(pl.Int32) - 1 >= 5).fill_null(False),
+)
+per_day = per_day.with_columns(
+    month_end=(pl.col("day").dt.day() == pl.col("day").dt.days_in_month())
+    .fill_null(False),
+)
+(
+    per_day
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_DURATIONS,
+        PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
+        PANDAS_CSV_LISTS,
+        PANDAS_CSV_NUMBER_LISTS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
+    )
+    .sink_csv("data/days.csv")
+)
 
 # -- presenters: licence renewal from the day they joined
 people = people.with_columns(initials=pandas_upper(pl.col("initials")))

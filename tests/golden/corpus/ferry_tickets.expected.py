@@ -278,24 +278,19 @@ tickets = tickets.with_columns(
 tickets = tickets.with_columns(
     revenue=pl.col("passengers") * pl.col("fare") + pl.col("vehicle_fee"),
 )
-tickets = (
-    tickets
-    .with_columns(
-        sail_date=pl.when(
-            pl.col("sail_date")
-            .str.contains(
-                "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
-            ),
-        )
-        .then(pl.col("sail_date"))
-        .when(
-            ~pl.col("sail_date").is_in(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"]) & pl.col("sail_date").is_not_null(),
-        )
-        .then(pl.lit("="))
-        .str.to_datetime("%Y-%m-%d", time_unit="us"),
+tickets = tickets.with_columns(
+    sail_date=pl.when(
+        pl.col("sail_date")
+        .str.contains(
+            "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
+        ),
     )
-    .collect()
-    .lazy()
+    .then(pl.col("sail_date"))
+    .when(
+        ~pl.col("sail_date").is_in(["", "NaT", "nat", "NAT", "nan", "NaN", "NAN"]) & pl.col("sail_date").is_not_null(),
+    )
+    .then(pl.lit("="))
+    .str.to_datetime("%Y-%m-%d", time_unit="us"),
 )
 tickets = (
     tickets

@@ -4,7 +4,6 @@ Each stake is read every day or two: the centimetres of stake standing out of th
 the ice melts. 'buried' means snow hid the stake; 'trace' of snow counts as none. A reading is
 suspicious when it jumps away from the median of the last three readings.
 """
-import numpy as np
 import polars as pl
 
 # Text that pandas' read_csv reads as a missing value.
@@ -327,9 +326,9 @@ PANDAS_CSV_INTS = (
 JUMP_CM = 20.0
 
 
-def jump_from_median(window):
-    # distance of the newest reading from the median of the window
-    return abs(window[-1] - np.nanmedian(window))
+# porter: jump_from_median(window), a function of each window, is ported as rolling expressions
+#   where it was applied, and left out here (its comments follow)
+# distance of the newest reading from the median of the window
 
 
 def load_readings(path):

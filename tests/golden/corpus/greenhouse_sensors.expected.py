@@ -290,8 +290,14 @@ daily = (
     .sort(["house", "day"])
 )
 daily = daily.with_columns(pl.selectors.float().round(2))
-daily = daily.with_columns(
-    hot_limit=pl.col("house").replace_strict(HOT_LIMIT, default=None),
+daily = (
+    daily
+    .with_columns(hot_limit=pl.col("house").replace_strict(HOT_LIMIT, default=None))
+    .collect()
+    .pipe(
+        lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("hot_limit",) if t[c].has_nulls()]),
+    )
+    .lazy()
 )
 daily = (
     daily

@@ -251,11 +251,8 @@ def load_loans(path):
 
 def flag_loans(loans):
     loans = loans.with_columns(still_out=pl.col("returned_on").is_null())
-    loans = (
-        loans
-        .with_columns(late=(pl.col("returned_on") > pl.col("due_on")).fill_null(False))
-        .collect()
-        .lazy()
+    loans = loans.with_columns(
+        late=(pl.col("returned_on") > pl.col("due_on")).fill_null(False),
     )
     loans = (
         loans

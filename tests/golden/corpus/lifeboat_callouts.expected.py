@@ -405,32 +405,27 @@ shouts = shouts.with_columns(
         3600,
     ),
 )
-shouts = (
-    shouts
-    .with_columns(
-        fuel_running_mean=pl.when(pl.col("boat").is_not_null())
-        .then(
-            pl.when(
-                pl.col("fuel_l").cast(pl.Float64).replace([float("inf"), float("-inf")], None).rolling_min(2 ** 31 - 1, min_samples=1) == pl.col("fuel_l").cast(pl.Float64).replace([float("inf"), float("-inf")], None).rolling_max(2 ** 31 - 1, min_samples=1),
-            )
-            .then(
-                pl.col("fuel_l")
-                .cast(pl.Float64)
-                .replace([float("inf"), float("-inf")], None)
-                .forward_fill(),
-            )
-            .otherwise(
-                pl.col("fuel_l")
-                .cast(pl.Float64)
-                .replace([float("inf"), float("-inf")], None)
-                .rolling_mean(2 ** 31 - 1, min_samples=1),
-            )
-            .over("boat"),
+shouts = shouts.with_columns(
+    fuel_running_mean=pl.when(pl.col("boat").is_not_null())
+    .then(
+        pl.when(
+            pl.col("fuel_l").cast(pl.Float64).replace([float("inf"), float("-inf")], None).rolling_min(2 ** 31 - 1, min_samples=1) == pl.col("fuel_l").cast(pl.Float64).replace([float("inf"), float("-inf")], None).rolling_max(2 ** 31 - 1, min_samples=1),
         )
-        .round(1),
+        .then(
+            pl.col("fuel_l")
+            .cast(pl.Float64)
+            .replace([float("inf"), float("-inf")], None)
+            .forward_fill(),
+        )
+        .otherwise(
+            pl.col("fuel_l")
+            .cast(pl.Float64)
+            .replace([float("inf"), float("-inf")], None)
+            .rolling_mean(2 ** 31 - 1, min_samples=1),
+        )
+        .over("boat"),
     )
-    .collect()
-    .lazy()
+    .round(1),
 )
 shouts = (
     shouts

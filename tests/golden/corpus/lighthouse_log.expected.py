@@ -228,11 +228,19 @@ log = log.with_columns(
     station=pandas_upper(pl.col("station").str.strip_chars(PANDAS_WHITESPACE)),
 )
 log = log.with_columns(keeper=tidy_names(pl.col('keeper')))
-log = log.with_columns(
-    watch_no=pl.col("watch")
-    .str.replace_many({"İ": "i", "Σ": "σ"})
-    .str.to_lowercase()
-    .replace_strict(WATCHES, default=None),
+log = (
+    log
+    .with_columns(
+        watch_no=pl.col("watch")
+        .str.replace_many({"İ": "i", "Σ": "σ"})
+        .str.to_lowercase()
+        .replace_strict(WATCHES, default=None),
+    )
+    .collect()
+    .pipe(
+        lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("watch_no",) if t[c].has_nulls()]),
+    )
+    .lazy()
 )
 log = log.with_columns(
     wind_bft=pl.col("wind_bft").fill_null(0),

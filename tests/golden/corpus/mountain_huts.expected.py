@@ -265,6 +265,9 @@ stays = (
         guest_nights=pl.col("guests") * pl.col("nights"),
     )
     .collect()
+    .pipe(
+        lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("year", "month") if t[c].has_nulls()]),
+    )
     .lazy()
 )
 

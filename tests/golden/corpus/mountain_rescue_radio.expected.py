@@ -252,7 +252,7 @@ log = log.with_columns(
 log = log.with_columns(
     at=pl.col("at").dt.replace_time_zone("UTC").dt.convert_time_zone("Europe/Vienna"),
 )
-log = log.with_columns(local_day=pl.col("at").dt.to_string("%Y-%m-%d")).collect().lazy()
+log = log.with_columns(local_day=pl.col("at").dt.to_string("%Y-%m-%d"))
 log = (
     log
     .with_columns(hour=pl.col("at").dt.hour().cast(pl.Int32))
@@ -299,12 +299,7 @@ log = log.with_columns(
     .str.replace_all("([0-9])_([0-9])", "${1}${2}")
     .cast(pl.Float64),
 )
-log = (
-    log
-    .with_columns(mayday=txt.str.contains("(?i)mayday").fill_null(False))
-    .collect()
-    .lazy()
-)
+log = log.with_columns(mayday=txt.str.contains("(?i)mayday").fill_null(False))
 log = (
     log
     .with_columns(numbers=txt.str.extract_all("\\d+").list.len().cast(pl.Int64))
@@ -383,17 +378,12 @@ log = log.with_columns(
         nan_to_null=True,
     ),
 )
-log = (
-    log
-    .with_columns(
-        priority=pl.col("kind")
-        .replace_strict(PRIORITY, default=None)
-        .fill_null(9)
-        .cast(pl.Float64)
-        .cast(pl.Int64),
-    )
-    .collect()
-    .lazy()
+log = log.with_columns(
+    priority=pl.col("kind")
+    .replace_strict(PRIORITY, default=None)
+    .fill_null(9)
+    .cast(pl.Float64)
+    .cast(pl.Int64),
 )
 log = (
     log
@@ -443,19 +433,14 @@ inc = inc.with_columns(
     closed=pl.col("closed").fill_null(pl.col("opened") + pl.duration(hours=12)),
 )
 inc = inc.with_columns(open_for=pl.col("closed") - pl.col("opened"))
-inc = (
-    inc
-    .with_columns(
-        hours=pandas_div(
-            pl.col("open_for")
-            .dt.total_microseconds()
-            .pipe(lambda us: us // 1_000_000 + us % 1_000_000 / (us * 0 + 1_000_000)),
-            3600,
-        )
-        .round(2),
+inc = inc.with_columns(
+    hours=pandas_div(
+        pl.col("open_for")
+        .dt.total_microseconds()
+        .pipe(lambda us: us // 1_000_000 + us % 1_000_000 / (us * 0 + 1_000_000)),
+        3600,
     )
-    .collect()
-    .lazy()
+    .round(2),
 )
 inc = (
     inc
@@ -494,8 +479,6 @@ per_inc = (
         pl.col("words").sum().alias("words"),
     )
     .sort("incident")
-    .collect()
-    .lazy()
 )
 per_inc = (
     per_inc

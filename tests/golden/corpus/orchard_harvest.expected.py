@@ -323,6 +323,11 @@ clean = (
         grade=pandas_upper(pl.col("grade").str.strip_chars(PANDAS_WHITESPACE)),
         month=pl.col("pick_date").dt.month().cast(pl.Int32),
     )
+    .collect()
+    .pipe(
+        lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("month",) if t[c].has_nulls()]),
+    )
+    .lazy()
     .drop_nulls(["kg", "grade"])
     .collect()
     .lazy()

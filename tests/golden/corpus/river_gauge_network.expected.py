@@ -376,7 +376,7 @@ monthly = (
     .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort(["month", "river"])
 )
-monthly = monthly.with_columns(flow_m3s=pl.col("flow_m3s").round(2)).collect().lazy()
+monthly = monthly.with_columns(flow_m3s=pl.col("flow_m3s").round(2))
 wide = (
     monthly
     .select("month", "river", "flow_m3s")

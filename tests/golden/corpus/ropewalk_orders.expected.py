@@ -467,12 +467,7 @@ priced = priced.with_columns(
 priced = priced.with_columns(
     metres_per_kg=(pl.col("metres") / pl.col("kg")).fill_nan(None),
 )
-priced = (
-    priced
-    .with_columns(is_open=(pl.col("status") == "open").fill_null(False))
-    .collect()
-    .lazy()
-)
+priced = priced.with_columns(is_open=(pl.col("status") == "open").fill_null(False))
 priced = (
     priced
     .with_columns(month=pl.col("ordered_on").dt.month().cast(pl.Int32))

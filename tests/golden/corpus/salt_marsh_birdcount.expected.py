@@ -256,8 +256,9 @@ counts = (
     .lazy()
 )
 
-# TODO(porter): series.map: a named function porter cannot read: write its body as a lambda or as
-#   column expressions
+# TODO(porter): series.map: a loop or a block that only a Python call can run; porter runs
+#   match_species on Polars values only on a text or float column whose type it knows (convert with
+#   --data)
 # TODO(porter): frame.setitem: a Series computed by pandas, row for row from this frame, is put back
 #   by position; port the computation to an expression
 counts = (

@@ -103,9 +103,11 @@ span = book["span"].str.replace(" ", "", regex=False).str.split("-", expand=True
 span.columns = ["start", "stop"]
 span["start"] = span["start"].str.zfill(5)
 print(span.head())
-# TODO(porter): pd.to_timedelta: argument errors is not handled by porter yet
+# TODO(porter): pd.to_timedelta: only a column of a frame porter ports, or a number or text written
+#   out, is ported
 book["start"] = book["day"] + pd.to_timedelta(span["start"] + ":00", errors="coerce")
-# TODO(porter): pd.to_timedelta: argument errors is not handled by porter yet
+# TODO(porter): pd.to_timedelta: only a column of a frame porter ports, or a number or text written
+#   out, is ported
 book["stop"] = book["day"] + pd.to_timedelta(span["stop"] + ":00", errors="coerce")
 overnight = book["stop"] < book["start"]
 book.loc[overnight, "stop"] += pl.select(pl.duration(days=1)).item()

@@ -283,20 +283,15 @@ loans = loans.with_columns(
 )
 loans = loans.with_columns(lost=(pl.col("back_date") == "lost").fill_null(False))
 loans = loans.with_columns(broken=(pl.col("condition") == "broken").fill_null(False))
-loans = (
-    loans
-    .with_columns(
-        back_date=pl.when(
-            pl.col("back_date")
-            .str.contains(
-                "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
-            ),
-        )
-        .then(pl.col("back_date"))
-        .str.to_datetime("%Y-%m-%d", time_unit="us", strict=False),
+loans = loans.with_columns(
+    back_date=pl.when(
+        pl.col("back_date")
+        .str.contains(
+            "(?i)^(?:(?:[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?:1[0-2]|0[1-9]|[1-9])-(?:3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))$",
+        ),
     )
-    .collect()
-    .lazy()
+    .then(pl.col("back_date"))
+    .str.to_datetime("%Y-%m-%d", time_unit="us", strict=False),
 )
 loans = (
     loans
