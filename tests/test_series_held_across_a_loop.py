@@ -88,3 +88,18 @@ def test_a_loop_over_named_columns_keeps_the_frames_columns_known(folder: Path) 
         result = log.reset_index(drop=True)
         """, data_dir=str(folder))
     assert not result.todos, result.converted_text
+
+
+def test_a_series_read_in_a_loop_whose_body_hands_its_frame_over(folder: Path) -> None:
+    # the body puts a pandas Series back into a frame pandas changes in the loop: the Series is
+    # pandas' in every round, made once before the loop (it was left a LazyFrame: TypeError)
+    differential("""
+        import numpy as np
+        import pandas as pd
+        log = pd.DataFrame({"first": [4.0, np.nan], "middle": [np.nan, 3.0]})
+        before = log["first"] * 10
+        for k in range(2):
+            log["x"] = before + k
+            log["first"] = log["first"].fillna(7) + 1
+        result = log
+        """)

@@ -513,6 +513,11 @@ class _Walker:
                 self.note_handed_over(name, value)
                 line = f"{name} = {handover.to_pandas(value).text}\n"
                 before.append(cst.parse_statement(line))
+            elif isinstance(value, Column) and isinstance(after.get(name), PandasValue):
+                # a Series kept in a name that the body computes with pandas values: pandas'
+                # Series in every iteration, made once before the loop
+                widened[name] = PandasValue(emit.atom(name))
+                before.append(cst.parse_statement(f"{name} = {handover.to_pandas(value).text}\n"))
         if handed:
             # the header runs after the hand-over too: it reads the pandas frames
             header_env = {**env, **{name: PandasValue(emit.atom(name)) for name in handed}}
