@@ -247,7 +247,8 @@ def _first_rows(file: Path, head: Path, options: dict[str, Any]) -> bool:
             yield lines[kept - 1]
 
     rows = csv.reader(feed(), delimiter=options.get("sep", ","))
-    wanted = 1 + int(options["nrows"])  # the header, then the rows
+    # the header (none with header=None), then the rows
+    wanted = (0 if "header" in options and options["header"] is None else 1) + int(options["nrows"])
     try:
         for row in rows:
             if row:
@@ -312,6 +313,9 @@ def _implicit_index(file: Path, options: dict[str, Any]) -> bool:
     the first column as the index (Polars' reader fails on such a row)."""
     import csv
     import itertools
+
+    if "names" in options or ("header" in options and options["header"] is None):
+        return False  # no header line to compare with (names= of another count fail the scan)
 
     try:
         with file.open(encoding="utf-8-sig", errors="replace", newline="") as handle:
@@ -421,6 +425,8 @@ def _text_read_as_numbers(file: Path, schema: Any, options: dict[str, Any]) \
     and scanned as text and stripped only when a number in it is padded too.
     """
     given = options.get("dtype") if isinstance(options.get("dtype"), dict) else {}
+    if options.get("dtype") == "str":  # every column read as text (dtype=str)
+        return dict(schema), {}, set()
     texts = [name for name, dtype in schema.items() if dtype == pl.String and name not in given]
     found = dict(schema)
     if not texts or file.stat().st_size > SAMPLE_SCAN_LIMIT:
@@ -474,7 +480,8 @@ def _blank_lines(file: Path, kwargs: dict[str, Any]) -> tuple[bool | None, bool]
             lines = handle.read().splitlines()
     except OSError:
         return None, False
-    for line in lines[1 + int(kwargs.get("skip_rows") or 0):]:
+    header = 1 if kwargs.get("has_header", True) else 0
+    for line in lines[header + int(kwargs.get("skip_rows") or 0):]:
         if not line:
             blank = True
         elif not line.strip():  # skipped by pandas, a row of spaces in Polars' text columns

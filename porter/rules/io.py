@@ -29,6 +29,9 @@ from porter.translate.context import (PandasCall, RuleContext, Unsupported, deri
                                      nullable_columns, select_columns)
 from porter.translate.values import Frame, Module, Opaque, PandasValue, Scalar, Value
 
+# dtype= for every column that reads each as text: str and "str" (pandas 3.1's str dtype),
+# "string" (StringDtype, pd.NA for missing) and object
+ALL_TEXT_DTYPES = ("str", "string", "object")
 READ_CSV_IGNORED = {"low_memory", "engine", "memory_map", "on_bad_lines"}
 
 
@@ -83,8 +86,8 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     (infer_schema_length=None), sep, usecols in file order, dtype, parse_dates, na_values
     (one value, a list, or a dict of columns: see _emptied_columns; a number, given as text or
     not, also in its other spellings in float columns: see _numbers_missing), nrows, skiprows
-    (a count).
-    Caveats: index_col, header/names, converters, encodings other than UTF-8, a list of
+    (a count), header=None / 0 with names=[...] (has_header, new_columns), dtype=str / "str" / object / "string" for every column (infer_schema_length=0).
+    Caveats: index_col, header=None without names (integer column names), converters, encodings other than UTF-8, a list of
     skipped rows, keep_default_na=False, on_bad_lines="skip"/"warn" (pandas leaves out a row
     with more fields than the header) and sep=None (pandas guesses the separator) are TODOs; na_values per column needs --data (or a
     dtype= for those columns). With nrows, Polars still infers types from the whole file (0.9).
@@ -98,7 +101,8 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     it; a repeated header name is a TODO then.
     """
     known = {"filepath_or_buffer", "sep", "delimiter", "usecols", "dtype", "parse_dates",
-             "na_values", "keep_default_na", "nrows", "skiprows", "encoding", *READ_CSV_IGNORED}
+             "na_values", "keep_default_na", "nrows", "skiprows", "encoding", "header", "names",
+             *READ_CSV_IGNORED}
     ctx.reject_unknown(call, *known, positional=1)
     source = call.arg("filepath_or_buffer", 0)
     check_source(source, ctx)
@@ -143,6 +147,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     encoding = call.const("encoding", None, None, kinds=(str,))
     if encoding is not None and encoding.lower().replace("-", "").replace("_", "") not in ("utf8", "utf8sig"):
         raise ctx.todo(f"encoding {encoding!r}: Polars reads UTF-8 only; re-encode the file first")
+    _header_and_names(call, ctx, kwargs, options)
     per_column = _na_values_per_column(call, ctx)
     na_values = None if per_column is not None else call.const_values("na_values")
     nulls: object = emit.atom(NA_CONSTANT)
@@ -152,10 +157,28 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         options["na_values"] = extra
     kwargs["null_values"] = nulls
     dtype = call.const("dtype", None, None) if call.has("dtype") and _const_dtype_dict(call) else None
+    all_text = False
     if call.has("dtype") and dtype is None:
         dtype_value = call.arg("dtype")
         spelled = dtype_spelling(dtype_value)
-        raise ctx.todo(f"dtype={spelled or dtype_value.code.text} for every column: give a dict of columns")
+        if spelled is None and dtype_value.code.text in ("str", "object", "np.object_"):
+            spelled = "object" if "object" in dtype_value.code.text else "str"  # the builtins
+        if spelled not in ALL_TEXT_DTYPES:
+            raise ctx.todo(f"dtype={spelled or dtype_value.code.text} for every column: give a dict of columns")
+        # every column read as text as the file writes it (" 5", "007", "+3", "1,200.5"):
+        # Polars' scan with no type inference; pandas' missing-value tokens still read as
+        # missing in both (keep_default_na=False is a TODO above)
+        all_text = True
+        options["dtype"] = "str"
+        if spelled == "object":
+            ctx.lower("dtype=object: pandas' columns are object (dtypes says so) where the "
+                      "values read are the same text; a frame handed back to pandas has str "
+                      "columns", 0.95)
+        if spelled == "string":
+            ctx.lower('dtype="string": pandas holds pd.NA for a missing value and its string '
+                      "methods give nullable results (str.len() is Int64 with <NA>, a "
+                      "comparison <NA>, not False); the values read and what to_csv writes "
+                      "are the same", 0.9)
     overrides: dict[str, Code] = {}
     dtypes: dict[str, str] = {}
     nullable: dict[str, str] = {}  # pandas' nullable integers (dtype={"c": "Int64"})
@@ -170,7 +193,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
             dtypes[column] = DTYPES[spelled][1]
         options["dtype"] = dict(call.kwargs["dtype"].const)  # type: ignore[union-attr]
         kwargs["schema_overrides"] = overrides
-    kwargs["infer_schema_length"] = None
+    kwargs["infer_schema_length"] = 0 if all_text else None
     skiprows = call.const("skiprows", None, None, kinds=(int, list, tuple))
     if skiprows is not None:
         if not isinstance(skiprows, int):
@@ -340,12 +363,53 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower(f"{_paths(source)} is not under the --data folder (paths are looked up from "
                   "it, as the script reads them from where it runs): the scan infers the types "
                   "over the whole file", 0.95)
-    if schema is None and not dtype:
+    if schema is None and all_text:
+        ctx.lower("a blank line is skipped by pandas and read as a row of missing values by "
+                  "Polars (run with --data to have porter look)", 0.95)
+    elif schema is None and not dtype:
         ctx.lower("column types are inferred from the data the same way in both, except "
                   "integer columns with missing values (float in pandas); a blank line is "
                   "skipped by pandas and read as a row of missing values by Polars (run with "
                   "--data to have porter look)", 0.95)
     return frame
+
+
+def _header_and_names(call: PandasCall, ctx: RuleContext, kwargs: dict[str, object],
+                      options: dict[str, Any]) -> None:
+    """read_csv(header=None / 0, names=[...]) -> scan_csv(has_header=..., new_columns=[...]).
+
+    header=None reads the first line as data; names= gives the columns their names (header=0
+    beside it: the file's header line is read and replaced). pandas' dtype= and na_values
+    keys are the new names, as are Polars' schema_overrides keys."""
+    names = call.const("names", None, None, kinds=(list, tuple)) if call.has("names") else None
+    if call.has("names") and (names is None or not all(isinstance(n, str) for n in names)):
+        raise ctx.todo("names= must list the column names as texts")
+    header: object = "infer"
+    if call.has("header"):
+        header = call.const("header", None, "?", kinds=(int, str, type(None)))
+        if isinstance(header, bool) or header not in (None, 0, "infer"):
+            raise ctx.todo(f"header={call.arg('header').code.text}: only header=None or 0 are "
+                           "read (a later header line or several are not)")
+    if header == "infer":  # pandas: no header line when names are given, else the first line
+        header = None if names is not None else 0
+    if header is None and names is None:
+        # pandas names the columns 0, 1, ... (integers); Polars names must be text
+        # ("column_1"), and df[0] would select nothing
+        raise ctx.todo("header=None without names=: pandas names the columns by the integers "
+                       "0, 1, ...; give names=[...] so the columns have names Polars can carry")
+    if names is not None and len(set(names)) != len(names):
+        raise ctx.todo("names= repeats a name (pandas refuses it)")
+    if header is None:
+        kwargs["has_header"] = False
+        options["header"] = None
+    if names is not None:
+        kwargs["new_columns"] = list(names)
+        options["names"] = list(names)
+        # pandas takes the first fields as the row labels when a row has more fields than
+        # names, and adds columns of NaN when it has fewer; Polars' scan fails on either
+        ctx.lower("names=: a file whose rows do not have as many fields as names fails to "
+                  "read (pandas makes the extra first fields the row labels, or adds columns "
+                  "of NaN)", 0.95)
 
 
 # The types a text column is cast to after the scan exactly as the CSV reader would parse it
