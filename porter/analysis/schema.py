@@ -140,6 +140,21 @@ class SchemaReader:
         file = self.root / path
         if not file.is_file():
             return None
+        if reader == "csv" and options.get("encoding"):
+            # read_csv(encoding="latin-1"): the rule reads it with pl.read_csv(encoding=...),
+            # which decodes it with Python's codec; porter reads a UTF-8 copy the same way
+            import tempfile
+            with tempfile.TemporaryDirectory() as folder:
+                copy = Path(folder) / file.name
+                try:
+                    copy.write_text(file.read_bytes().decode(options["encoding"]), encoding="utf-8")
+                except (UnicodeDecodeError, LookupError, OSError):
+                    return None
+                rest = {k: v for k, v in options.items() if k != "encoding"}
+                return self._read_decoded(reader, copy, rest)
+        return self._read_decoded(reader, file, options)
+
+    def _read_decoded(self, reader: str, file: Path, options: dict[str, Any]) -> dict[str, str] | None:
         if reader == "csv":
             ends = _line_ends(file)
             if ends == "mixed":  # no scan reads it as pandas does: the read is a TODO
@@ -433,14 +448,17 @@ def _text_read_as_numbers(file: Path, schema: Any, options: dict[str, Any]) \
         return found, {}, set()
     frame = pl.scan_csv(file, **scan_kwargs(options))
     stripped = [pl.col(name).str.strip_chars(PADDING) for name in texts]
+    padded_float, plain_float = PADDED_FLOAT, PLAIN_FLOAT
+    if options.get("decimal") == ",":  # "1,5" is a number to pandas then, "1.5" text
+        padded_float, plain_float = (p.replace(r"\.", ",") for p in (PADDED_FLOAT, PLAIN_FLOAT))
     row = frame.select(
         pl.len().alias("\0rows"),
         *[pl.col(name).null_count().alias(f"\0nulls{i}") for i, name in enumerate(texts)],
         *[s.str.contains(PADDED_INT).all().alias(f"\0int{i}") for i, s in enumerate(stripped)],
-        *[s.str.contains(PADDED_FLOAT).all().alias(f"\0float{i}") for i, s in enumerate(stripped)],
-        *[(pl.col(name).str.contains(INFINITY) | s.str.contains(PADDED_FLOAT)).all()
+        *[s.str.contains(padded_float).all().alias(f"\0float{i}") for i, s in enumerate(stripped)],
+        *[(pl.col(name).str.contains(INFINITY) | s.str.contains(padded_float)).all()
           .alias(f"\0inf{i}") for i, (name, s) in enumerate(zip(texts, stripped))],
-        *[pl.col(name).str.contains(f"{INFINITY}|{PLAIN_FLOAT}").all().alias(f"\0plain{i}")
+        *[pl.col(name).str.contains(f"{INFINITY}|{plain_float}").all().alias(f"\0plain{i}")
           for i, name in enumerate(texts)],
     ).collect().row(0, named=True)
     padded: dict[str, Any] = {}

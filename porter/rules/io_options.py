@@ -426,6 +426,8 @@ def scan_kwargs(options: dict[str, Any]) -> dict[str, Any]:
         kwargs["has_header"] = False
     if "names" in options:
         kwargs["new_columns"] = list(options["names"])
+    if options.get("decimal") == ",":
+        kwargs["decimal_comma"] = True
     if "skiprows" in options:
         kwargs["skip_rows"] = options["skiprows"]
     if "lineterminator" in options:  # lines ending in a bare \r (the schema reader's finding)
