@@ -109,7 +109,7 @@ TODOS = [
     pytest.param('df = pd.read_csv("produce.csv", index_col=0)', "pd.read_csv", id="index_col"),
     pytest.param('df = pd.read_csv("produce.csv", skiprows=[1, 3])', "pd.read_csv",
                  id="a list of skipped rows"),
-    pytest.param('df = pd.read_csv("produce.csv", encoding="latin-1")', "pd.read_csv",
+    pytest.param('df = pd.read_csv("produce.csv", encoding="shift_jis")', "pd.read_csv",
                  id="encodings other than UTF-8"),
     pytest.param('df = pd.read_csv("produce.csv", sep=r"\\s*,\\s*", engine="python")', "pd.read_csv",
                  id="a regex separator"),

@@ -140,6 +140,21 @@ class SchemaReader:
         file = self.root / path
         if not file.is_file():
             return None
+        if reader == "csv" and options.get("encoding"):
+            # read_csv(encoding="latin-1"): the rule reads it with pl.read_csv(encoding=...),
+            # which decodes it with Python's codec; porter reads a UTF-8 copy the same way
+            import tempfile
+            with tempfile.TemporaryDirectory() as folder:
+                copy = Path(folder) / file.name
+                try:
+                    copy.write_text(file.read_bytes().decode(options["encoding"]), encoding="utf-8")
+                except (UnicodeDecodeError, LookupError, OSError):
+                    return None
+                rest = {k: v for k, v in options.items() if k != "encoding"}
+                return self._read_decoded(reader, copy, rest)
+        return self._read_decoded(reader, file, options)
+
+    def _read_decoded(self, reader: str, file: Path, options: dict[str, Any]) -> dict[str, str] | None:
         if reader == "csv":
             ends = _line_ends(file)
             if ends == "mixed":  # no scan reads it as pandas does: the read is a TODO
@@ -247,7 +262,8 @@ def _first_rows(file: Path, head: Path, options: dict[str, Any]) -> bool:
             yield lines[kept - 1]
 
     rows = csv.reader(feed(), delimiter=options.get("sep", ","))
-    wanted = 1 + int(options["nrows"])  # the header, then the rows
+    # the header (none with header=None), then the rows
+    wanted = (0 if "header" in options and options["header"] is None else 1) + int(options["nrows"])
     try:
         for row in rows:
             if row:
@@ -312,6 +328,9 @@ def _implicit_index(file: Path, options: dict[str, Any]) -> bool:
     the first column as the index (Polars' reader fails on such a row)."""
     import csv
     import itertools
+
+    if "names" in options or ("header" in options and options["header"] is None):
+        return False  # no header line to compare with (names= of another count fail the scan)
 
     try:
         with file.open(encoding="utf-8-sig", errors="replace", newline="") as handle:
@@ -421,20 +440,25 @@ def _text_read_as_numbers(file: Path, schema: Any, options: dict[str, Any]) \
     and scanned as text and stripped only when a number in it is padded too.
     """
     given = options.get("dtype") if isinstance(options.get("dtype"), dict) else {}
+    if options.get("dtype") == "str":  # every column read as text (dtype=str)
+        return dict(schema), {}, set()
     texts = [name for name, dtype in schema.items() if dtype == pl.String and name not in given]
     found = dict(schema)
     if not texts or file.stat().st_size > SAMPLE_SCAN_LIMIT:
         return found, {}, set()
     frame = pl.scan_csv(file, **scan_kwargs(options))
     stripped = [pl.col(name).str.strip_chars(PADDING) for name in texts]
+    padded_float, plain_float = PADDED_FLOAT, PLAIN_FLOAT
+    if options.get("decimal") == ",":  # "1,5" is a number to pandas then, "1.5" text
+        padded_float, plain_float = (p.replace(r"\.", ",") for p in (PADDED_FLOAT, PLAIN_FLOAT))
     row = frame.select(
         pl.len().alias("\0rows"),
         *[pl.col(name).null_count().alias(f"\0nulls{i}") for i, name in enumerate(texts)],
         *[s.str.contains(PADDED_INT).all().alias(f"\0int{i}") for i, s in enumerate(stripped)],
-        *[s.str.contains(PADDED_FLOAT).all().alias(f"\0float{i}") for i, s in enumerate(stripped)],
-        *[(pl.col(name).str.contains(INFINITY) | s.str.contains(PADDED_FLOAT)).all()
+        *[s.str.contains(padded_float).all().alias(f"\0float{i}") for i, s in enumerate(stripped)],
+        *[(pl.col(name).str.contains(INFINITY) | s.str.contains(padded_float)).all()
           .alias(f"\0inf{i}") for i, (name, s) in enumerate(zip(texts, stripped))],
-        *[pl.col(name).str.contains(f"{INFINITY}|{PLAIN_FLOAT}").all().alias(f"\0plain{i}")
+        *[pl.col(name).str.contains(f"{INFINITY}|{plain_float}").all().alias(f"\0plain{i}")
           for i, name in enumerate(texts)],
     ).collect().row(0, named=True)
     padded: dict[str, Any] = {}
@@ -474,7 +498,8 @@ def _blank_lines(file: Path, kwargs: dict[str, Any]) -> tuple[bool | None, bool]
             lines = handle.read().splitlines()
     except OSError:
         return None, False
-    for line in lines[1 + int(kwargs.get("skip_rows") or 0):]:
+    header = 1 if kwargs.get("has_header", True) else 0
+    for line in lines[header + int(kwargs.get("skip_rows") or 0):]:
         if not line:
             blank = True
         elif not line.strip():  # skipped by pandas, a row of spaces in Polars' text columns

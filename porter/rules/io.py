@@ -29,6 +29,9 @@ from porter.translate.context import (PandasCall, RuleContext, Unsupported, deri
                                      nullable_columns, select_columns)
 from porter.translate.values import Frame, Module, Opaque, PandasValue, Scalar, Value
 
+# dtype= for every column that reads each as text: str and "str" (pandas 3.1's str dtype),
+# "string" (StringDtype, pd.NA for missing) and object
+ALL_TEXT_DTYPES = ("str", "string", "object")
 READ_CSV_IGNORED = {"low_memory", "engine", "memory_map", "on_bad_lines"}
 
 
@@ -83,8 +86,9 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     (infer_schema_length=None), sep, usecols in file order, dtype, parse_dates, na_values
     (one value, a list, or a dict of columns: see _emptied_columns; a number, given as text or
     not, also in its other spellings in float columns: see _numbers_missing), nrows, skiprows
-    (a count).
-    Caveats: index_col, header/names, converters, encodings other than UTF-8, a list of
+    (a count), decimal="," (decimal_comma), header=None / 0 with names=[...] (has_header, new_columns), dtype=str / "str" / object / "string" for every column (infer_schema_length=0).
+    Caveats: index_col, header=None without names (integer column names), converters, encodings
+    other than UTF-8, latin-1 and cp1252 (read eagerly by pl.read_csv(encoding=...).lazy()), a list of
     skipped rows, keep_default_na=False, on_bad_lines="skip"/"warn" (pandas leaves out a row
     with more fields than the header) and sep=None (pandas guesses the separator) are TODOs; na_values per column needs --data (or a
     dtype= for those columns). With nrows, Polars still infers types from the whole file (0.9).
@@ -98,7 +102,9 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     it; a repeated header name is a TODO then.
     """
     known = {"filepath_or_buffer", "sep", "delimiter", "usecols", "dtype", "parse_dates",
-             "na_values", "keep_default_na", "nrows", "skiprows", "encoding", *READ_CSV_IGNORED}
+             "na_values", "keep_default_na", "nrows", "skiprows", "encoding", "header", "names",
+             "decimal",
+             *READ_CSV_IGNORED}
     ctx.reject_unknown(call, *known, positional=1)
     source = call.arg("filepath_or_buffer", 0)
     check_source(source, ctx)
@@ -141,8 +147,32 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
             kwargs["separator"] = sep
         options["sep"] = sep
     encoding = call.const("encoding", None, None, kinds=(str,))
+    decoded = None  # an encoding Polars' scan does not read: the file is read eagerly
     if encoding is not None and encoding.lower().replace("-", "").replace("_", "") not in ("utf8", "utf8sig"):
-        raise ctx.todo(f"encoding {encoding!r}: Polars reads UTF-8 only; re-encode the file first")
+        spelled = encoding.lower().replace("_", "-")
+        if spelled not in SINGLE_BYTE_ENCODINGS:
+            raise ctx.todo(f"encoding {encoding!r}: Polars' scan reads UTF-8 only, and porter "
+                           "reads only latin-1 / iso-8859-1 / cp1252 eagerly; re-encode the file "
+                           "first")
+        if compression_of(str(_paths(source) or "")) is not None:
+            raise ctx.todo(f"encoding {encoding!r} of a compressed file: Polars' eager reader "
+                           "decodes the bytes before it decompresses them")
+        # pl.read_csv decodes the file with Python's codec (as pandas does), then reads it
+        decoded = encoding
+        options["encoding"] = spelled
+    _header_and_names(call, ctx, kwargs, options)
+    decimal = call.const("decimal", None, ".", kinds=(str,)) if call.has("decimal") else "."
+    if decimal not in (".", ","):
+        raise ctx.todo(f"decimal={call.arg('decimal').code.text}: Polars' reader reads a "
+                       "decimal point or a decimal comma only")
+    if decimal == ",":
+        # pandas and Polars' decimal_comma read "1,5" as 1.5 and leave a column holding
+        # "1.5" text (measured: the same types, the same values, quoted or not)
+        if (sep or ",") == ",":
+            ctx.lower("decimal=\",\" beside the comma separator: only quoted numbers (\"1,5\") "
+                      "are read as decimals, as in pandas", 0.95)
+        kwargs["decimal_comma"] = True
+        options["decimal"] = ","
     per_column = _na_values_per_column(call, ctx)
     na_values = None if per_column is not None else call.const_values("na_values")
     nulls: object = emit.atom(NA_CONSTANT)
@@ -152,10 +182,28 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         options["na_values"] = extra
     kwargs["null_values"] = nulls
     dtype = call.const("dtype", None, None) if call.has("dtype") and _const_dtype_dict(call) else None
+    all_text = False
     if call.has("dtype") and dtype is None:
         dtype_value = call.arg("dtype")
         spelled = dtype_spelling(dtype_value)
-        raise ctx.todo(f"dtype={spelled or dtype_value.code.text} for every column: give a dict of columns")
+        if spelled is None and dtype_value.code.text in ("str", "object", "np.object_"):
+            spelled = "object" if "object" in dtype_value.code.text else "str"  # the builtins
+        if spelled not in ALL_TEXT_DTYPES:
+            raise ctx.todo(f"dtype={spelled or dtype_value.code.text} for every column: give a dict of columns")
+        # every column read as text as the file writes it (" 5", "007", "+3", "1,200.5"):
+        # Polars' scan with no type inference; pandas' missing-value tokens still read as
+        # missing in both (keep_default_na=False is a TODO above)
+        all_text = True
+        options["dtype"] = "str"
+        if spelled == "object":
+            ctx.lower("dtype=object: pandas' columns are object (dtypes says so) where the "
+                      "values read are the same text; a frame handed back to pandas has str "
+                      "columns", 0.95)
+        if spelled == "string":
+            ctx.lower('dtype="string": pandas holds pd.NA for a missing value and its string '
+                      "methods give nullable results (str.len() is Int64 with <NA>, a "
+                      "comparison <NA>, not False); the values read and what to_csv writes "
+                      "are the same", 0.9)
     overrides: dict[str, Code] = {}
     dtypes: dict[str, str] = {}
     nullable: dict[str, str] = {}  # pandas' nullable integers (dtype={"c": "Int64"})
@@ -170,7 +218,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
             dtypes[column] = DTYPES[spelled][1]
         options["dtype"] = dict(call.kwargs["dtype"].const)  # type: ignore[union-attr]
         kwargs["schema_overrides"] = overrides
-    kwargs["infer_schema_length"] = None
+    kwargs["infer_schema_length"] = 0 if all_text else None
     skiprows = call.const("skiprows", None, None, kinds=(int, list, tuple))
     if skiprows is not None:
         if not isinstance(skiprows, int):
@@ -263,12 +311,14 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
             ctx.lower("nrows: the scan is told the types of the rows pandas reads; Polars' "
                       "reader also parses some rows past them, and a value there that does "
                       "not fit those types (True/False) stops the read", 0.9)
-        if all(t.text in TEXT_CASTS for t in types.values()):
-            code = _scan_as_text(source.code, kwargs, types, bool(getattr(schema, "partial", False)))
+        if all(t.text in TEXT_CASTS for t in types.values()) and decimal == ".":
+            # (a cast of "1,5" to Float64 fails: a decimal comma is read by the typed scan)
+            code = _scan_as_text(source.code, kwargs, types, bool(getattr(schema, "partial", False)),
+                                 decoded)
         else:
-            code = emit.pl("scan_csv", source.code, **kwargs)
+            code = _scan(source.code, kwargs, decoded)
     else:
-        code = emit.pl("scan_csv", source.code, **kwargs)
+        code = _scan(source.code, kwargs, decoded)
     if schema and any(re.search(r"_duplicated_\d+$", c) for c in schema):
         raise ctx.todo("the header repeats a name: pandas names the copy 'x.1' (an empty one "
                        "'Unnamed: n'), Polars '_duplicated_n'")
@@ -287,9 +337,13 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     if padded:
         # numbers with spaces around them or a plus sign (" 5", "+3"): pandas reads numbers,
         # Polars text; stripped and cast as pandas types them (--data showed every value fits)
+        stripped = {c: emit.col(unnamed.get(c, c)).attr("str").method("strip_chars", PADDING)
+                    for c in padded}
+        if decimal == ",":  # "1,5" -> "1.5", which the cast reads (decimal=",")
+            stripped = {c: e.attr("str").method("replace", ",", ".", literal=True)
+                        for c, e in stripped.items()}
         code = code.method("with_columns", *[
-            emit.col(unnamed.get(c, c)).attr("str").method("strip_chars", PADDING)
-            .method("cast", emit.atom(t)) for c, t in padded.items()])
+            stripped[c].method("cast", emit.atom(t)) for c, t in padded.items()])
         ctx.lower("numbers written with spaces around them or a plus sign are read as text and "
                   "cast (--data showed every value of those columns is a number)", 0.95)
     if emptied:
@@ -340,12 +394,53 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower(f"{_paths(source)} is not under the --data folder (paths are looked up from "
                   "it, as the script reads them from where it runs): the scan infers the types "
                   "over the whole file", 0.95)
-    if schema is None and not dtype:
+    if schema is None and all_text:
+        ctx.lower("a blank line is skipped by pandas and read as a row of missing values by "
+                  "Polars (run with --data to have porter look)", 0.95)
+    elif schema is None and not dtype:
         ctx.lower("column types are inferred from the data the same way in both, except "
                   "integer columns with missing values (float in pandas); a blank line is "
                   "skipped by pandas and read as a row of missing values by Polars (run with "
                   "--data to have porter look)", 0.95)
     return frame
+
+
+def _header_and_names(call: PandasCall, ctx: RuleContext, kwargs: dict[str, object],
+                      options: dict[str, Any]) -> None:
+    """read_csv(header=None / 0, names=[...]) -> scan_csv(has_header=..., new_columns=[...]).
+
+    header=None reads the first line as data; names= gives the columns their names (header=0
+    beside it: the file's header line is read and replaced). pandas' dtype= and na_values
+    keys are the new names, as are Polars' schema_overrides keys."""
+    names = call.const("names", None, None, kinds=(list, tuple)) if call.has("names") else None
+    if call.has("names") and (names is None or not all(isinstance(n, str) for n in names)):
+        raise ctx.todo("names= must list the column names as texts")
+    header: object = "infer"
+    if call.has("header"):
+        header = call.const("header", None, "?", kinds=(int, str, type(None)))
+        if isinstance(header, bool) or header not in (None, 0, "infer"):
+            raise ctx.todo(f"header={call.arg('header').code.text}: only header=None or 0 are "
+                           "read (a later header line or several are not)")
+    if header == "infer":  # pandas: no header line when names are given, else the first line
+        header = None if names is not None else 0
+    if header is None and names is None:
+        # pandas names the columns 0, 1, ... (integers); Polars names must be text
+        # ("column_1"), and df[0] would select nothing
+        raise ctx.todo("header=None without names=: pandas names the columns by the integers "
+                       "0, 1, ...; give names=[...] so the columns have names Polars can carry")
+    if names is not None and len(set(names)) != len(names):
+        raise ctx.todo("names= repeats a name (pandas refuses it)")
+    if header is None:
+        kwargs["has_header"] = False
+        options["header"] = None
+    if names is not None:
+        kwargs["new_columns"] = list(names)
+        options["names"] = list(names)
+        # pandas takes the first fields as the row labels when a row has more fields than
+        # names, and adds columns of NaN when it has fewer; Polars' scan fails on either
+        ctx.lower("names=: a file whose rows do not have as many fields as names fails to "
+                  "read (pandas makes the extra first fields the row labels, or adds columns "
+                  "of NaN)", 0.95)
 
 
 # The types a text column is cast to after the scan exactly as the CSV reader would parse it
@@ -354,7 +449,23 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
 TEXT_CASTS = ("pl.String", "pl.Int64", "pl.Int32", "pl.Float64", "pl.Float32", "pl.UInt64")
 
 
-def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], partial: bool) -> Code:
+# encodings pandas reads that Polars' eager reader decodes the same way (Python's codec, one
+# byte a character: every byte is a character, so no read fails in one and not the other,
+# except cp1252's five unassigned bytes, which both refuse)
+SINGLE_BYTE_ENCODINGS = ("latin-1", "latin1", "iso-8859-1", "iso8859-1", "cp1252",
+                         "windows-1252")
+
+
+def _scan(source: Code, kwargs: dict[str, Any], encoding: str | None) -> Code:
+    """pl.scan_csv, or for a file in another encoding pl.read_csv(encoding=...).lazy():
+    Polars' scan reads UTF-8 only, its eager reader decodes the file with Python's codec."""
+    if encoding is None:
+        return emit.pl("scan_csv", source, **kwargs)
+    return emit.pl("read_csv", source, **kwargs, encoding=encoding).method("lazy")
+
+
+def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], partial: bool,
+                  encoding: str | None = None) -> Code:
     """A scan of every column as text, pandas' missing-value tokens made missing, and a cast to
     the types porter read from --data.
 
@@ -365,7 +476,7 @@ def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], 
     the typed scan's schema_overrides ignore the ones it lacks."""
     options = {k: v for k, v in kwargs.items() if k not in ("schema_overrides", "null_values")}
     nulls = kwargs["null_values"]
-    code = emit.pl("scan_csv", source, **options).method(
+    code = _scan(source, options, encoding).method(
         "with_columns",
         emit.pl("when", emit.unary("~", emit.atom("pl.all()").method("is_in", nulls)))
         .method("then", emit.atom("pl.all()")))

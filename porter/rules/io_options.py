@@ -422,6 +422,12 @@ def scan_kwargs(options: dict[str, Any]) -> dict[str, Any]:
     kwargs: dict[str, Any] = {"null_values": list(PANDAS_NA_TOKENS), "infer_schema_length": None}
     if "sep" in options:
         kwargs["separator"] = options["sep"]
+    if "header" in options and options["header"] is None:  # the first line is data
+        kwargs["has_header"] = False
+    if "names" in options:
+        kwargs["new_columns"] = list(options["names"])
+    if options.get("decimal") == ",":
+        kwargs["decimal_comma"] = True
     if "skiprows" in options:
         kwargs["skip_rows"] = options["skiprows"]
     if "lineterminator" in options:  # lines ending in a bare \r (the schema reader's finding)
@@ -432,6 +438,8 @@ def scan_kwargs(options: dict[str, Any]) -> dict[str, Any]:
     elif isinstance(na, list):
         kwargs["null_values"].extend(str(v) for v in na)
     dtype = options.get("dtype")
+    if dtype == "str":  # every column as text (read_csv(dtype=str))
+        kwargs["infer_schema_length"] = 0
     if isinstance(dtype, dict):
         overrides = {}
         for column, name in dtype.items():

@@ -1,0 +1,258 @@
+"""read_csv options that read a file another way (every column as text, other encodings),
+checked against pandas 3.1 by the text each side prints and writes."""
+
+from __future__ import annotations
+
+import subprocess
+import sys
+import textwrap
+from pathlib import Path
+
+import pytest
+
+from porter.api import convert_source
+from porter.model import FileResult, Options
+from support import convert, same_text
+
+# an orchard co-op's crates: blanks, pandas' missing-value tokens, quoted fields with the
+# separator, accented text, numbers with spaces, a plus sign and leading zeros
+CRATES = ('variety,crate,weight,grower\n'
+          'Reinette grise, 5,"1,200.5",NA\n'
+          'Bérénice,,3.50,n/a\n'
+          '"Pippin, late",007,+3,  Éloïse \n'
+          'Cox,12,NaN,""\n'
+          'Gala,-0,1e3,null\n')
+
+READ_AS_TEXT = '''
+import pandas as pd
+crates = pd.read_csv("crates.csv", dtype={dtype})
+print(crates.dtypes.astype(str).tolist())
+print(crates.isna().sum().tolist())
+print(crates["crate"].str.len().tolist())
+crates["label"] = crates["crate"].str.strip() + "/" + crates["variety"]
+crates.to_csv("out.csv", index=False)
+'''
+
+
+@pytest.mark.parametrize("with_data", [True, False])
+@pytest.mark.parametrize("dtype", ["str", '"str"', "object"])
+def test_read_csv_every_column_as_text(tmp_path: Path, dtype: str, with_data: bool) -> None:
+    source = READ_AS_TEXT.format(dtype=dtype)
+    if dtype == "object":  # the values are the same; pandas names the dtype object (0.95)
+        source = source.replace('print(crates.dtypes.astype(str).tolist())\n', '')
+    result = same_text(source, tmp_path, {"crates.csv": CRATES}, with_data=with_data)
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+    assert "infer_schema_length=0" in result.converted_text
+
+
+def test_read_csv_every_column_as_pandas_string(tmp_path: Path) -> None:
+    source = READ_AS_TEXT.format(dtype='"string"').replace(
+        'print(crates.dtypes.astype(str).tolist())\n', '').replace(
+        'print(crates["crate"].str.len().tolist())\n', '')
+    result = same_text(source, tmp_path, {"crates.csv": CRATES})
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+    read = next(s for s in result.sites if s.key == "pd.read_csv")
+    assert read.confidence <= 0.9  # pd.NA, not NaN, for a missing value
+
+
+def test_read_csv_every_column_as_text_keeps_blank_line_handling(tmp_path: Path) -> None:
+    result = same_text('''
+        import pandas as pd
+        crates = pd.read_csv("crates.csv", dtype=str)
+        print(len(crates), crates["crate"].tolist())
+        crates.to_csv("out.csv", index=False)
+        ''', tmp_path, {"crates.csv": "variety,crate\nCox,007\n\nGala, 5\n"})
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+
+
+def test_read_csv_other_dtype_for_every_column_stays_todo() -> None:
+    text = convert('import pandas as pd\ndf = pd.read_csv("a.csv", dtype=float)\n').converted_text
+    assert "TODO(porter): pd.read_csv" in text
+
+
+# a ferry line's sailings, no header line: a blank, NA tokens, accented text, a quoted field
+SAILINGS = ('Île-aux-Moines,007,1.5\n'
+            '"Port, north",12,NA\n'
+            'Séné,,2\n'
+            'Arradon,3,n/a\n')
+
+
+@pytest.mark.parametrize("with_data", [True, False])
+@pytest.mark.parametrize("read", [
+    'pd.read_csv("sailings.csv", header=None, names=["pier", "cars", "hours"])',
+    'pd.read_csv("sailings.csv", names=["pier", "cars", "hours"])',
+    'pd.read_csv("sailings.csv", names=["pier", "cars", "hours"], dtype={"cars": str})',
+    'pd.read_csv("sailings.csv", names=("pier", "cars", "hours"), dtype=str)',
+    'pd.read_csv("sailings.csv", header=None, names=["pier", "cars", "hours"], usecols=["hours", "pier"])',
+])
+def test_read_csv_names_without_a_header_line(tmp_path: Path, read: str, with_data: bool) -> None:
+    result = same_text(f'''
+        import pandas as pd
+        sailings = {read}
+        print(sailings.columns.tolist(), sailings.dtypes.astype(str).tolist())
+        print(sailings.isna().sum().tolist(), len(sailings))
+        sailings.to_csv("out.csv", index=False)
+        ''', tmp_path, {"sailings.csv": SAILINGS}, with_data=with_data)
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+    assert "has_header=False" in result.converted_text
+
+
+@pytest.mark.parametrize("with_data", [True, False])
+def test_read_csv_names_replace_the_header_line(tmp_path: Path, with_data: bool) -> None:
+    result = same_text('''
+        import pandas as pd
+        sailings = pd.read_csv("sailings.csv", header=0, names=["pier", "cars", "hours"])
+        sailings["load"] = sailings["cars"] * 2
+        print(sailings.columns.tolist(), sailings.dtypes.astype(str).tolist())
+        sailings.to_csv("out.csv", index=False)
+        ''', tmp_path, {"sailings.csv": "Quai,Voitures,Heures\n" + SAILINGS.replace("\nSéné,,2", "")},
+        with_data=with_data)
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+    assert "new_columns=" in result.converted_text
+
+
+@pytest.mark.parametrize("read", [
+    'pd.read_csv("a.csv", header=None)',  # integer column names
+    'pd.read_csv("a.csv", header=1)',
+    'pd.read_csv("a.csv", names=["a", "a"])',
+])
+def test_read_csv_headers_porter_does_not_read_stay_todo(read: str) -> None:
+    text = convert(f"import pandas as pd\ndf = {read}\n").converted_text
+    assert "TODO(porter): pd.read_csv" in text
+
+
+def same_text_of_bytes(source: str, tmp_path: Path, files: dict[str, bytes],
+                       with_data: bool = True) -> FileResult:
+    """support.same_text for input files given as bytes (another encoding than UTF-8)."""
+    source = textwrap.dedent(source)
+    folders = {side: tmp_path / side for side in ("pandas", "polars")}
+    for folder in folders.values():
+        folder.mkdir()
+        for name, content in files.items():
+            (folder / name).write_bytes(content)
+    data = str(folders["pandas"]) if with_data else None
+    result = convert_source(source, options=Options(data_dir=data))
+    texts = []
+    for side, text in (("pandas", source), ("polars", result.converted_text)):
+        folder = folders[side]
+        (folder / "script.py").write_text(text, encoding="utf-8")
+        done = subprocess.run([sys.executable, "script.py"], cwd=folder, capture_output=True,
+                              text=True, timeout=120)
+        assert done.returncode == 0, f"{side} failed:\n{done.stderr}\n--- converted ---\n" \
+                                     f"{result.converted_text}"
+        written = {p.name: p.read_bytes() for p in sorted(folder.iterdir())
+                   if p.name != "script.py" and p.name not in files}
+        texts.append((done.stdout, written))
+    assert texts[0] == texts[1], f"pandas {texts[0]}\npolars {texts[1]}\n--- converted ---\n" \
+                                 f"{result.converted_text}"
+    return result
+
+
+# a cider press's ledger: accents, a quoted field with the separator, NA tokens, a blank,
+# numbers with a space in front (read as numbers by pandas; with --data by porter too)
+LEDGER = ('pressée,litres,remarque,prix\n'
+          'Reinette,12,"café, crème",1.5\n'
+          'Bérénice,,NA,2\n'
+          '{euro}uro,{pad}7,{oe}uf,n/a\n'
+          'Cœur de bœuf,3,,0.25\n')
+
+
+def ledger(encoding: str, pad: str = "") -> bytes:
+    single = encoding in ("latin-1", "iso-8859-1")  # no € nor œ in latin-1
+    text = LEDGER.format(euro="E" if single else "€", oe="O" if single else "Œ", pad=pad)
+    if single:
+        text = text.replace("œ", "oe")
+    return text.encode(encoding)
+
+
+@pytest.mark.parametrize("with_data", [True, False])
+@pytest.mark.parametrize("encoding", ["latin-1", "iso-8859-1", "cp1252", "ISO-8859-1",
+                                      "windows-1252", "latin1", "utf-8-sig"])
+def test_read_csv_in_another_encoding(tmp_path: Path, encoding: str, with_data: bool) -> None:
+    file = ledger("utf-8-sig" if encoding == "utf-8-sig" else encoding.lower().replace("latin1", "latin-1"))
+    result = same_text_of_bytes(f'''
+        import pandas as pd
+        presses = pd.read_csv("ledger.csv", encoding="{encoding}")
+        print(presses.columns.tolist(), presses.dtypes.astype(str).tolist())
+        print(presses.isna().sum().tolist())
+        presses["label"] = presses["pressée"].str.upper() + ":" + presses["remarque"]
+        presses.to_csv("out.csv", index=False)
+        ''', tmp_path, {"ledger.csv": file}, with_data=with_data)
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+    if encoding != "utf-8-sig":
+        assert f'encoding="{encoding}"' in result.converted_text
+
+
+def test_read_csv_in_another_encoding_with_padded_numbers_and_text_columns(tmp_path: Path) -> None:
+    # with --data the padded numbers are read as pandas reads them; dtype=str and names= too
+    result = same_text_of_bytes('''
+        import pandas as pd
+        presses = pd.read_csv("ledger.csv", encoding="cp1252")
+        presses["double"] = presses["litres"] * 2
+        texts = pd.read_csv("ledger.csv", encoding="cp1252", dtype=str)
+        named = pd.read_csv("ledger.csv", encoding="cp1252", header=0, names=["a", "b", "c", "d"])
+        print(presses.dtypes.astype(str).tolist(), texts["litres"].tolist(), named.columns.tolist())
+        presses.to_csv("out.csv", index=False)
+        texts.to_csv("texts.csv", index=False)
+        named.to_csv("named.csv", index=False, encoding="utf-8")
+        ''', tmp_path, {"ledger.csv": ledger("cp1252", pad=" ")})
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+
+
+@pytest.mark.parametrize("read", [
+    'pd.read_csv("a.csv", encoding="utf-16")',
+    'pd.read_csv("a.csv.gz", encoding="latin-1")',
+    'pd.read_csv("a.csv", encoding="shift_jis")',
+])
+def test_read_csv_encodings_porter_does_not_read_stay_todo(read: str) -> None:
+    text = convert(f"import pandas as pd\ndf = {read}\n").converted_text
+    assert "TODO(porter): pd.read_csv" in text
+
+
+# a lighthouse keeper's log with a decimal comma: a column of "1.5" stays text in pandas,
+# quoted numbers, exponents, a blank, NA, -0,0, and numbers with a space before them
+LOG = ('phare;hauteur;vent;code;note\n'
+       'Kéréon;1,5;7;1.5;"2,5"\n'
+       'Ar-Men;2;NA;2;3\n'
+       'Nividic;-0,25;;3,5;1,5e3\n'
+       'Jument;-0,0;9;x;,5\n')
+
+
+@pytest.mark.parametrize("with_data", [True, False])
+def test_read_csv_decimal_comma(tmp_path: Path, with_data: bool) -> None:
+    result = same_text('''
+        import pandas as pd
+        log = pd.read_csv("log.csv", sep=";", decimal=",")
+        print(log.dtypes.astype(str).tolist())
+        log["double"] = log["hauteur"] * 2
+        log.to_csv("out.csv", index=False)
+        ''', tmp_path, {"log.csv": LOG}, with_data=with_data)
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+    assert "decimal_comma=True" in result.converted_text
+
+
+def test_read_csv_decimal_comma_with_padded_numbers(tmp_path: Path) -> None:
+    # pandas reads " 1,5" and "+2" as numbers: with --data porter strips them, swaps the
+    # comma and casts
+    result = same_text('''
+        import pandas as pd
+        log = pd.read_csv("log.csv", sep=";", decimal=",")
+        print(log.dtypes.astype(str).tolist())
+        log.to_csv("out.csv", index=False)
+        ''', tmp_path, {"log.csv": "phare;hauteur;vent;code\nKéréon; 1,5;+2;1.5\nAr-Men;2; 3;1,5 \n"})
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+
+
+def test_read_csv_decimal_comma_beside_the_comma_separator(tmp_path: Path) -> None:
+    result = same_text('''
+        import pandas as pd
+        log = pd.read_csv("log.csv", decimal=",")
+        print(log.dtypes.astype(str).tolist())
+        log.to_csv("out.csv", index=False)
+        ''', tmp_path, {"log.csv": 'phare,hauteur,vent\nKéréon,"1,5",3\nAr-Men,2,"4,25"\n'})
+    assert "decimal_comma=True" in result.converted_text
+
+
+def test_read_csv_other_decimal_stays_todo() -> None:
+    text = convert('import pandas as pd\ndf = pd.read_csv("a.csv", decimal="\'")\n').converted_text
+    assert "TODO(porter): pd.read_csv" in text
