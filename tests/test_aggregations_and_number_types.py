@@ -10,7 +10,7 @@ from __future__ import annotations
 
 import pytest
 
-from support import convert, same_text
+from support import convert, differential, same_text
 
 CO = {"co.csv": "member,month,crates\nAnn,1,10\nAnn,2,7\nBea,1,\nBea,3,4\nCal,2,3\nCal,2,\nCal,1,5\n"}
 
@@ -154,14 +154,15 @@ def test_median_of_an_even_count(line, tmp_path):
     'df["run"] = df.groupby("stall")["fee"].cumsum()',
     'df["run"] = df.groupby("stall")["fee"].transform("cumsum")',
 ])
-def test_grouped_float_cumsum_says_pandas_compensates(line):
-    """pandas' grouped cumsum is Kahan-compensated (ten 0.1s: 1.0), Polars' cum_sum is not
-    (0.9999999999999999): no Polars expression follows it, so the site says so."""
-    result = convert(f"""
+def test_grouped_float_cumsum_is_pandas_compensated_sum(line):
+    """pandas' grouped cumsum is Kahan-compensated (ten 0.1s: 1.0, not 0.9999999999999999):
+    Polars' rolling sum over the group adds with the same compensation, at full confidence."""
+    result = differential(f"""
         import pandas as pd
-        df = pd.DataFrame({{"stall": ["pear"] * 10, "fee": [0.1] * 10}})
+        df = pd.DataFrame({{"stall": ["pear"] * 10 + ["fig"] * 3, "fee": [0.1] * 10 + [0.7] * 3}})
         {line}
+        result = df
         """)
     sites = [s for s in result.sites if s.key.startswith("groupby.")
              and s.key.endswith(("cumsum", "transform"))]
-    assert sites and sites[0].confidence <= 0.95 and "Kahan" in sites[0].message
+    assert sites and sites[0].confidence == 1.0
