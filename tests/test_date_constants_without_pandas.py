@@ -1,8 +1,9 @@
 """A date or a duration written as a module constant (`START = pd.Timestamp("2024-11-15")`,
 `pd.Timedelta(days=1)`) and used only beside Polars expressions becomes Python's datetime
 (timedelta), which Polars reads as the same literal: the conversion no longer imports pandas
-for it. pandas (the reference) runs each script; the conversion runs with Polars; both write the
-same text.
+for it. pd.Timestamp.now() / today() are read where the script reads them and used as literals
+in Polars expressions. pandas (the reference) runs each script; the conversion runs with
+Polars; both write the same text.
 """
 
 from __future__ import annotations
@@ -54,3 +55,19 @@ def test_a_script_naming_datetime_itself_keeps_its_constants(tmp_path: Path) -> 
                      + BODY + 'print(datetime(2024, 1, 1).year)\n',
                      tmp_path, {"shifts.csv": SHIFTS}).converted_text
     assert 'SEASON_START = pd.Timestamp("2024-11-15")' in text
+
+
+def test_now_and_today_read_where_the_script_reads_them(tmp_path: Path) -> None:
+    # the dates are far from today, so both runs agree whenever they run (a day count of a
+    # date far away could still change at midnight between the two runs: compared as a sign)
+    text = same_text('''\
+import pandas as pd
+visits = pd.read_csv("visits.csv", parse_dates=["day"])
+today = pd.Timestamp.today().normalize()
+now = pd.Timestamp.now()
+visits["past"] = visits["day"] < now
+visits["ahead"] = (visits["day"] - today).dt.days > 0
+visits["soon"] = visits["day"] <= pd.Timestamp.today()
+visits.to_csv("out.csv", index=False)
+''', tmp_path, {"visits.csv": "day,n\n2001-03-04,1\n2099-12-31,2\n,3\n"}).converted_text
+    assert "TODO(porter)" not in text, text

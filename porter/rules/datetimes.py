@@ -407,6 +407,23 @@ def timestamp(call: PandasCall, ctx: RuleContext) -> Value:
     return _date_constant(call, call.const("ts_input", 0), None, ctx)
 
 
+@rule("pd.Timestamp.now", "pd.Timestamp.today")
+def timestamp_now(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.Timestamp.now() / today() -> the same call, read once where the script reads it, and
+    pl.lit() of it inside Polars expressions (the local time, without a time zone).
+
+    Handles: compared with, added to or subtracted from a datetime column, as a Timestamp
+    written out is.
+    Caveats: a time zone (tz=) is a TODO; the time differs from one run to the next, so
+    `porter verify` can only compare outputs that do not show it.
+    """
+    ctx.reject_unknown(call)
+    assert call.node is not None
+    import libcst as cst
+    original = Code(cst.Module([]).code_for_node(call.node))
+    return Scalar(original, pytype="datetime", expr=emit.pl("lit", original))
+
+
 def _date_constant(call: PandasCall, text: object, fmt: str | None, ctx: RuleContext) -> Value:
     """A date written as text in the script, read by pandas itself at convert time (with
     pd.to_datetime's format when one is given)."""
