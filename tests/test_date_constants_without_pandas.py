@@ -71,3 +71,15 @@ visits["soon"] = visits["day"] <= pd.Timestamp.today()
 visits.to_csv("out.csv", index=False)
 ''', tmp_path, {"visits.csv": "day,n\n2001-03-04,1\n2099-12-31,2\n,3\n"}).converted_text
     assert "TODO(porter)" not in text, text
+
+
+def test_a_constant_beside_a_python_value_of_a_plan_stays_a_timestamp(tmp_path: Path) -> None:
+    # the latest day as a Python value minus the constant: a Timestamp makes a Timedelta
+    # ("3 days 00:00:00" printed), a datetime would make a timedelta ("3 days, 0:00:00")
+    text = same_text('import pandas as pd\n\nSEASON_START = pd.Timestamp("2024-11-15")\n'
+                     'shifts = pd.read_csv("shifts.csv", parse_dates=["day"])\n'
+                     'shifts["late"] = shifts["day"] > SEASON_START\n'
+                     'print(shifts["day"].max() - SEASON_START)\n'
+                     'shifts.to_csv("out.csv", index=False)\n',
+                     tmp_path, {"shifts.csv": SHIFTS}).converted_text
+    assert 'SEASON_START = pd.Timestamp("2024-11-15")' in text, text

@@ -239,7 +239,7 @@ def plain_date_constants(module: cst.Module, facts: ImportFacts) -> cst.Module:
             operands = [node.left, *node.comparators]
         for operand in operands:
             if isinstance(operand, ast.Name) and operand.id in constants and any(
-                    o is not operand and "pl." in ast.unparse(o) for o in operands):
+                    o is not operand and _polars_expression(o) for o in operands):
                 beside_polars[operand.id] = beside_polars.get(operand.id, 0) + 1
     plain = {name: text for name, text in constants.items() if stores.get(name) == 1
              and uses.get(name, 0) and uses[name] == beside_polars.get(name, 0)}
@@ -273,6 +273,31 @@ def plain_date_constants(module: cst.Module, facts: ImportFacts) -> cst.Module:
 def _is_future(stmt: cst.BaseSmallStatement) -> bool:
     return isinstance(stmt, cst.ImportFrom) and isinstance(stmt.module, cst.Name) \
         and stmt.module.value == "__future__"
+
+
+# methods that leave Polars for a Python value (a datetime minus which is a timedelta, where
+# a Timestamp would have made a Timedelta)
+_PYTHON_RESULTS = frozenset({"item", "collect", "to_list", "to_numpy", "to_series", "row",
+                             "rows", "to_pandas", "to_dict", "to_dicts"})
+
+
+def _polars_expression(node: ast.expr) -> bool:
+    """Whether `node` is a Polars expression: a chain of methods on pl.col(...), pl.lit(...),
+    pl.when(...)..., or arithmetic with one, that never turns into a Python value."""
+    if isinstance(node, ast.BinOp):
+        return _polars_expression(node.left) or _polars_expression(node.right)
+    while isinstance(node, (ast.Call, ast.Attribute, ast.Subscript)):
+        if isinstance(node, ast.Call):
+            func = node.func
+            if isinstance(func, ast.Attribute) and isinstance(func.value, ast.Name) \
+                    and func.value.id == "pl":
+                return True
+            if isinstance(func, ast.Attribute) and func.attr in _PYTHON_RESULTS:
+                return False
+            node = func
+        else:
+            node = node.value
+    return False
 
 
 def _datetime_module_style(tree: ast.Module) -> str | None:
