@@ -38,7 +38,7 @@ SAFE_NAMES = SAFE_CALLS | _EXCEPTIONS
 PURE_MODULES = frozenset({"math", "re", "string", "difflib"})
 _LIST_OF_STR = "list of str"  # a kind no column holds: only read through an item
 # decorators that keep a function's results: a cache of a function that changes nothing
-_CACHES = frozenset({"lru_cache", "cache", "functools.lru_cache", "functools.cache"})
+CACHE_DECORATORS = frozenset({"lru_cache", "cache", "functools.lru_cache", "functools.cache"})
 # calls whose result is a plain Python value (not a frame or a Series porter converts)
 _PYTHON_VALUE_CALLS = frozenset({"list", "set", "tuple", "dict", "sorted", "frozenset", "len",
                                  "int", "float", "str", "bool"})
@@ -144,7 +144,7 @@ def _is_cache(decorator: ast.expr) -> bool:
     kept; for a function that changes nothing outside itself, the results are the same."""
     if isinstance(decorator, ast.Call):
         decorator = decorator.func
-    return ast.unparse(decorator) in _CACHES
+    return ast.unparse(decorator) in CACHE_DECORATORS
 
 
 def _python_value(node: ast.expr) -> bool:

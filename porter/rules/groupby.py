@@ -217,6 +217,15 @@ class UntypedColumns:
 IN_KEY_ORDER = "_porter_rows_in_key_order"
 
 
+def keys_sorted_as_pandas(grouped: Grouped) -> bool:
+    """A sort=True, dropna=True groupby by keys that Polars sorts as pandas does (text by code
+    point, numbers, dates, True/False): whether its rows come in key order can be told from
+    them, which decides how pandas adds a group's floats (in_key_order_flag)."""
+    return grouped.sort and not grouped.prepared and grouped.dropna and all(
+        grouped.frame.dtype(k) in ("str", "int", "datetime", "date", "bool")
+        for k in grouped.keys)
+
+
 def in_key_order_flag(grouped: Grouped, exprs: list[Code],
                       untyped: Collection[str] = ()) -> Code | None:
     """For a groupby with float sums of their own (agg_with_sums), a flag computed on the rows
@@ -225,10 +234,7 @@ def in_key_order_flag(grouped: Grouped, exprs: list[Code],
     without missing values with numpy's reduceat (pandas_group_sums). Only for sort=True
     groupbys by keys that Polars sorts as pandas does (text by code point, numbers, dates,
     True/False); None otherwise."""
-    if not grouped.sort or grouped.prepared or not grouped.dropna:
-        return None
-    if any(grouped.frame.dtype(k) not in ("str", "int", "datetime", "date", "bool")
-           for k in grouped.keys):
+    if not keys_sorted_as_pandas(grouped):
         return None
     if not any(split is not None and split[1] != WHOLE_FRAME
                for split in (_own_group_sum(e, untyped) for e in exprs)):

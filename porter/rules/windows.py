@@ -20,6 +20,7 @@ from porter.rules import rule
 from porter.rules.elementwise import _checked, body_expression, function_value
 from porter.rules.groupby import (
     GROUP_MEAN_FUNCTION, GROUP_SUM_FUNCTION, GROUP_SUM_OVER_FUNCTION, agg_expr, group_order,
+    keys_sorted_as_pandas,
 )
 from porter.rules.io_options import QUANTILE_FUNCTION
 from porter.rules.ops import abs_, float32_possible, round_
@@ -340,10 +341,8 @@ def _group_sum_over(grouped: Grouped, expr: Code, how: str, values: Code) -> Cod
             and not expr.text.startswith(f"{GROUP_MEAN_FUNCTION}("):
         return None
     frame = grouped.frame
-    if not grouped.sort or grouped.prepared or not grouped.dropna \
-            or frame.columns is None or any(k not in frame.columns for k in grouped.keys) \
-            or any(frame.dtype(k) not in ("str", "int", "datetime", "date", "bool")
-                   for k in grouped.keys):
+    if not keys_sorted_as_pandas(grouped) or frame.columns is None \
+            or any(k not in frame.columns for k in grouped.keys):
         return None
     options = {"mean": True} if how == "mean" else {}
     return emit.call(GROUP_SUM_OVER_FUNCTION, values, *grouped.keys, **options)

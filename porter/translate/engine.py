@@ -2486,6 +2486,8 @@ def _executions(tree: ast.AST) -> list[set[str]]:
 def _collects_what_it_binds(text: str) -> bool:
     """Whether `name = <chain>` collects the plan it binds (`t.with_columns(...).collect()
     .pipe(...).lazy()`): the frame is made there, in memory."""
+    if ".collect()" not in text:  # most statements: no parse
+        return False
     try:
         tree = ast.parse(text)
     except SyntaxError:

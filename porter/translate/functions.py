@@ -12,6 +12,7 @@ from typing import Any
 import libcst as cst
 
 from porter.analysis.mutations import changed_in_place
+from porter.analysis.row_functions import CACHE_DECORATORS
 from porter.emit.code import Code
 from porter.translate.evaluate import Evaluator, LocalFunction, Services
 from porter.translate.values import (
@@ -131,8 +132,7 @@ def function_definitions(module: cst.Module) -> dict[str, cst.FunctionDef]:
 def _is_cache(decorator: cst.BaseExpression) -> bool:
     if isinstance(decorator, cst.Call):
         decorator = decorator.func
-    return cst.Module([]).code_for_node(decorator) in (
-        "lru_cache", "cache", "functools.lru_cache", "functools.cache")
+    return cst.Module([]).code_for_node(decorator) in CACHE_DECORATORS
 
 
 def _passed_as_values(module: cst.Module, names: set[str]) -> set[str]:
