@@ -45,6 +45,11 @@ def rows(value: Any) -> tuple[list[str], list[tuple[Any, ...]]]:
     if isinstance(value, pd.DataFrame):
         if isinstance(value.index, pd.MultiIndex) or value.index.name is not None:
             value = value.reset_index(allow_duplicates=True)
+        elif value.index.inferred_type not in ("integer", "empty") \
+                and "index" not in [str(c) for c in value.columns]:
+            # labels that are not row numbers (df.sum()'s column names) are data, as
+            # porter's verifier reads them: "index", as reset_index() names them
+            value = value.reset_index()
         else:
             value = value.reset_index(drop=True)
         # porter flattens MultiIndex columns to column_function (documented, confidence 0.9)

@@ -53,7 +53,18 @@ def test_unnamed_plain_index_is_dropped() -> None:
     table = normalize(filtered)
     assert table.columns == ["city", "kg"]
     assert table.height == 2
-    assert normalize(pd.DataFrame({"v": [1]}, index=["x"])).columns == ["v"]
+
+
+def test_unnamed_index_of_labels_is_data() -> None:
+    # df.isna().sum(): a Series indexed by the column names, which the reader sees; the
+    # converted side holds them as a column "index", as reset_index() names them
+    missing = SALES.assign(kg=[1.0, None, 3.0, 2.0]).isna().sum()
+    table = normalize(missing)
+    assert table.columns == ["index", "0"]
+    assert table["index"].to_list() == ["city", "kg"]
+    assert normalize(pd.DataFrame({"v": [1]}, index=["x"])).columns == ["index", "v"]
+    # a column already named "index" keeps its own values
+    assert normalize(pd.DataFrame({"index": [1]}, index=["x"])).columns == ["index"]
 
 
 def test_index_that_is_also_a_column_is_not_repeated() -> None:

@@ -26,6 +26,7 @@ from porter.rules import rule
 from porter.rules.io_options import ROW_FUNCTION, float_text
 from porter.rules.ops import abs_, compare, int64_branches, int64_lit, may_hold_nan, round_
 from porter.rules.strings import LIST_STR
+from porter.rules.totals import column_totals, float_sum
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_of, derived_column, value_dtype,
 )
@@ -1588,11 +1589,13 @@ def frame_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
         return _row_count(call, frame, ctx)
     known = ["axis", "skipna", "numeric_only"] + (["min_count"] if call.name == "sum" else [])
     ctx.reject_unknown(call, *known, positional=1)
-    axis = call.const("axis", 0, 0, kinds=(int, str))
-    if axis not in (1, "columns"):
-        raise Unsupported(f"a {call.name} per column (axis=0)")
+    axis = call.const("axis", 0, 0, kinds=(int, str, type(None)))
     if not call.const("skipna", None, True, kinds=(bool,)):
         raise Unsupported("skipna=False")
+    if axis in (0, "index"):
+        return _per_column(call, frame, ctx)
+    if axis not in (1, "columns"):
+        raise Unsupported(f"a {call.name} of the whole frame (axis=None)")
     min_count = call.const("min_count", None, 0, kinds=(int,)) if call.name == "sum" else 0
     columns = _row_columns(call, frame)
     kinds = {c.dtype for c in columns}
@@ -1622,13 +1625,58 @@ def frame_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
 
 def _row_count(call: PandasCall, frame: Frame, ctx: RuleContext) -> Value:
     ctx.reject_unknown(call, "axis", "numeric_only", positional=1)
+    if call.const("axis", 0, 0, kinds=(int, str)) in (0, "index"):
+        return _per_column(call, frame, ctx)
     if call.const("axis", 0, 0, kinds=(int, str)) not in (1, "columns"):
-        raise Unsupported("a count per column (axis=0)")
+        raise Unsupported("a count of the whole frame")
     columns = _row_columns(call, frame)
     present = [c.code.method("is_not_null") for c in columns]
     code = emit.pl("sum_horizontal", *present).method("cast", emit.atom("pl.Int64"))
     base = Column(emit.pl("lit", None), frame=frame, name=None)
     return derived_column(base, code, dtype="int", name=None, others=columns)
+
+
+def _per_column(call: PandasCall, frame: Frame, ctx: RuleContext) -> Column:
+    """df.sum() / mean / min / max / count per column (axis=0): pandas' Series indexed by the
+    column names, as a frame of the names and the values (totals.column_totals).
+
+    count counts the present values of columns of any type; sum, mean, min and max need
+    every column's type: numbers (and True/False for sum and mean, counted as 1 and 0), where
+    pandas would reduce text or dates too, or give an object Series of mixed values. Floats
+    are added as pandas adds them (numpy's pairwise sum, totals.float_sum); integers exactly,
+    and made float beside a float column as pandas makes the Series float64."""
+    if call.name == "sum" and call.const("min_count", None, 0, kinds=(int,)) > 0:
+        raise Unsupported("min_count per column")
+    if frame.columns is None or not frame.columns:
+        raise Unsupported("the frame's columns are not known")
+    names = [c.name for c in _row_columns(call, frame)]  # type: ignore[misc]
+    if call.name == "count":
+        return column_totals(frame, names, lambda c: emit.col(c).method("count").method(
+            "cast", emit.atom("pl.Int64")), "int")
+    kinds = {c: frame.dtype(c) for c in names}
+    allowed = {"int", "float", "bool"} if call.name in ("sum", "mean") else {"int", "float"}
+    other = sorted({str(k) for k in kinds.values() if k not in allowed})
+    if other:
+        raise Unsupported(f"a {call.name} per column over {', '.join(other)} columns (pandas "
+                          "reduces text and dates too, or gives an object Series)")
+    floats = "float" in kinds.values() or call.name == "mean"
+    as_float = emit.atom("pl.Float64")
+
+    def reduce(name: str) -> Code:
+        column = emit.col(name)
+        if call.name == "mean":
+            # pandas adds the values as float64, with numpy's pairwise sum, over the count
+            return float_sum(column if kinds[name] == "float" else column.method("cast", as_float),
+                             mean=True)
+        if call.name == "sum" and kinds[name] == "float":
+            return float_sum(column)
+        if call.name == "sum":  # whole numbers and True/False: exact, int64 as pandas'
+            total = column.method("sum").method("cast", emit.atom("pl.Int64"))
+            return total.method("cast", as_float) if floats else total
+        extreme = column.method(call.name)
+        return extreme.method("cast", as_float) if floats and kinds[name] == "int" else extreme
+
+    return column_totals(frame, names, reduce, "float" if floats else "int")
 
 
 def _row_columns(call: PandasCall, frame: Frame) -> list[Column]:
@@ -1646,3 +1694,22 @@ def _row_columns(call: PandasCall, frame: Frame) -> list[Column]:
         if not names:
             raise Unsupported("numeric_only=True on a frame without number columns")
     return [column_of(frame, c) for c in names]
+
+
+@rule("frame.pipe")
+def frame_pipe(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.pipe(lambda d: ...) -> the lambda's body with d standing for the frame.
+
+    Handles: a lambda of one parameter whose body porter ports (a filter, an assign, a chain
+    of methods); what it gives back (a frame, a column, a value) is what pandas' pipe gives.
+    Caveats: a function of the script's own (df.pipe(clean)), extra arguments and a
+    (function, keyword) tuple are TODOs.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "func", positional=1)
+    func = call.arg("func", 0, None)
+    if not (isinstance(func, Opaque) and isinstance(func.node, cst.Lambda)):
+        raise Unsupported("a function other than a lambda (write its body on the frame, or "
+                          "use LazyFrame.pipe once it takes and returns a LazyFrame)")
+    return frame_lambda(func.node, frame, ctx)

@@ -1084,7 +1084,8 @@ def pandas_scalar(column: Column, expr: Code, pytype: str | None = None) -> Scal
     value = column.frame.code.method("select", expr).method("collect").method(
         "to_series").method("to_pandas").attr("iloc").index(0)
     agg_column = Column(expr, frame=column.frame, name=column.name, refs=column.refs,
-                        versions=column.versions)
+                        versions=column.versions,
+                        dtype="datetime" if pytype == "datetime" else None)
     return Scalar(value, pytype=pytype, agg=agg_column)
 
 

@@ -1301,4 +1301,5 @@ def _as_frame(call: PandasCall) -> Frame:
     # the Series keeps its frame's row labels: after a filter or a sort they are no longer
     # 0..n-1, which to_csv's index=True (and to_parquet) must not write as such
     return Frame(code, columns=(*receiver.frame.index, name), index=receiver.frame.index,
-                 labels_intact=receiver.frame.labels_intact)
+                 labels_intact=receiver.frame.labels_intact,
+                 index_unnamed=receiver.frame.index_unnamed)

@@ -11,7 +11,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate import handover
-from porter.translate.context import PandasCall, RuleContext
+from porter.translate.context import PandasCall, RuleContext, Unsupported
 from porter.translate.values import Column, Frame, Opaque, Scalar, Value
 from porter.rules.selection import nullable_values_lower
 
@@ -119,6 +119,46 @@ def series_values(call: PandasCall, ctx: RuleContext) -> Value:
     return Scalar(code, pytype="array")
 
 
+@rule("builtin.list")
+def builtin_list(call: PandasCall, ctx: RuleContext) -> Value:
+    """list(s) -> s.tolist(): pandas iterates a Series as tolist() gives it (Python numbers,
+    Timestamps, nan for a missing value)."""
+    if not isinstance(call.receiver, Column) or call.args or call.kwargs:
+        raise Unsupported("list() of anything but a Series")
+    return series_values(replace(call, name="tolist"), ctx)
+
+
+@rule("series.items")
+def series_items(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.items() -> (label, value) pairs of the collected key and value columns, on a Series
+    labelled by one key (a groupby's, df.sum()'s column names).
+
+    Handles: whole numbers and floats as Python numbers (pandas gives numpy's, which print,
+    format and compute alike), nan for a missing float; text keys and numbers as keys.
+    Other values (text that may be missing, dates) are pandas' own: the Series is handed over
+    for the loop (to_pandas().items()).
+    Caveats: row numbers as labels (a frame's column) and labels of several keys are TODOs."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call)
+    frame = column.frame
+    if len(frame.index) != 1:
+        raise ctx.todo("labels that are row numbers or several keys: zip the label columns "
+                       "and the values of the collected frame")
+    key = frame.index[0]
+    if column.dtype in ("int", "float") and frame.dtype(key) in ("int", "str") \
+            and not column.nullable_int and column.float_int is None:
+        value = column.code if column.dtype == "int" else column.code.method(
+            "fill_null", emit.atom('float("nan")'))  # pandas' nan for a missing float
+        name = column.name if column.name is not None else "0"
+        if value.text != emit.col(name).text:
+            value = value.method("alias", name)
+        pairs = frame.code.method("select", key, value).method("collect").method("iter_rows")
+        return Scalar(pairs, pytype="iterator")
+    ctx.handover = True  # pandas' own values (nan for a missing text, Timestamps)
+    return Scalar(handover.to_pandas(column).method("items"), pytype="iterator")
+
+
 @rule("frame.values", "frame.to_numpy")
 def frame_values(call: PandasCall, ctx: RuleContext) -> Value:
     """DataFrame.values / to_numpy() -> collect, .to_numpy() for numbers; the array pandas
@@ -165,6 +205,8 @@ def series_to_dict(call: PandasCall, ctx: RuleContext) -> Value:
     frame = column.frame
     name = column.name if isinstance(column.name, str) else None
     expr = column.code.method("fill_null", False) if column.null_is_false else column.code
+    if name is None and len(frame.index) == 1 and frame.index[0] != "0":
+        name = "0"  # an unnamed Series (df.isna().sum()): its values under a name of their own
     if len(frame.index) == 1 and name is not None and name not in frame.index:
         key = frame.index[0]
         value = name if expr.text == emit.col(name).text else expr.method("alias", name)

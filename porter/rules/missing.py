@@ -13,6 +13,7 @@ import libcst as cst
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
+from porter.rules.totals import column_totals
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, column_of, derive,
     derived_column,
@@ -113,9 +114,25 @@ def missing_mask_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("not a mask made by isna() / notna()")
     extra = ["skipna", "numeric_only", "min_count"] if call.name == "sum" else ["skipna", "bool_only"]
     ctx.reject_unknown(call, "axis", *extra, positional=1)
-    if call.const("axis", 0, 0, kinds=(int, str, type(None))) not in (1, "columns"):
-        raise Unsupported(f"a {call.name} per column (axis=0) or of the whole frame: "
-                          "per-column counts are lf.null_count()")
+    axis = call.const("axis", 0, 0, kinds=(int, str, type(None)))
+    if axis in (0, "index"):
+        # one value per column: the count of missing (present) values, or whether any / all
+        # are; the mask holds no missing values, so skipna and min_count (up to 1) change
+        # nothing
+        if call.const("min_count", None, 0, kinds=(int,)) > 1:
+            raise Unsupported("min_count above 1 per column")
+        for flag in extra:
+            if flag != "min_count":
+                call.const(flag, None, False, kinds=(bool,))
+
+        def reduce(name: str) -> Code:
+            test = emit.col(name).method(mask.test).method(call.name)
+            return test.method("cast", emit.atom("pl.Int64")) if call.name == "sum" else test
+
+        return column_totals(mask.source, mask.names, reduce,
+                             "int" if call.name == "sum" else "bool")
+    if axis not in (1, "columns"):
+        raise Unsupported(f"a {call.name} of the whole frame (axis=None)")
     for flag in extra:
         if flag != "min_count":
             call.const(flag, None, False, kinds=(bool,))

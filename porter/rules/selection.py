@@ -19,7 +19,7 @@ from porter.translate.context import (
 )
 from porter.translate.handover import series_frame, to_pandas
 from porter.translate.values import (
-    Accessor, Column, Frame, Opaque, PandasValue, Parts, Scalar, Value,
+    Accessor, Column, Frame, Module, Opaque, PandasValue, Parts, Scalar, Value,
 )
 
 
@@ -384,16 +384,36 @@ def frame_index(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: a resample, a pivot or an unstack by time; the DatetimeIndex methods (strftime,
     year, month_name …) are Series.dt's: idx.strftime(fmt) is dt.to_string(fmt).
 
-    Caveats: any other index (row numbers, text keys, several keys) is a TODO: the index is not
-    data in Polars."""
+    Any other index of one key (a groupby's text keys) is that key column.
+    Caveats: row numbers and several keys are TODOs: the index is not data in Polars."""
     frame = call.receiver
     assert isinstance(frame, Frame)
-    if len(frame.index) != 1 or frame.dtype(frame.index[0]) != "datetime":
+    return _index_of(frame, ctx)
+
+
+@rule("series.index")
+def series_index(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.index -> the index key column, on a Series labelled by one key (a groupby's, the
+    column names of df.sum()): its values as a column of the Series' frame.
+
+    Handles: list(s.index), s.index.tolist(), iteration and comparisons read the key's values
+    in the Series' order; a date key's DatetimeIndex methods are Series.dt's.
+    Caveats: row numbers and several keys are TODOs."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    return _index_of(column.frame, ctx)
+
+
+def _index_of(frame: Frame, ctx: RuleContext) -> Value:
+    """The labels of a table indexed by one key column, as that column."""
+    if len(frame.index) != 1:
         raise ctx.todo("the index is not data in Polars: keep the labels in a column "
                        "(with_row_index) and use it")
     key = frame.index[0]
-    return Accessor(Code(f"{frame.code.text}.index"), column=column_of(frame, key), kind="dt",
-                    index_of=frame)
+    if frame.dtype(key) == "datetime":
+        return Accessor(Code(f"{frame.code.text}.index"), column=column_of(frame, key),
+                        kind="dt", index_of=frame)
+    return replace(column_of(frame, key), name=None if frame.index_unnamed else key)
 
 
 @rule("frame.index.assign")
@@ -724,12 +744,49 @@ def series_getitem(call: PandasCall, ctx: RuleContext) -> Value:
             and column.frame.labels_intact and not column.frame.index:
         from porter.rules.materialize import series_position
         return series_position(call, ctx)
+    if isinstance(key, Opaque) and key.is_const and unique_key(column.frame):
+        return series_label(call, ctx)
     if not isinstance(key, Column):
         raise Unsupported("a Series indexed by label or position")
     frame = column.frame
     filtered = derive(frame, frame.code.method("filter", ctx.expr(key, frame)), same_rows=False)
     return Column(ctx.expr(column, frame), frame=filtered, name=column.name, dtype=column.dtype,
                   refs=column.refs, versions=column.versions)
+
+
+def unique_key(frame: Frame) -> bool:
+    """Whether `frame` is labelled by one key column whose values are all different: a
+    groupby's result in its own order, or a Series indexed by column names (df.sum())."""
+    return len(frame.index) == 1 and (frame.grouped_rows == frame.rows or frame.index_unnamed)
+
+
+@rule("series.loc")
+def series_label(call: PandasCall, ctx: RuleContext) -> Value:
+    """s["label"] / s.loc["label"] -> the value of the row whose key is the label, on a Series
+    labelled by one key of distinct values (a groupby's, df.sum()'s column names).
+
+    Handles: the value as s.iloc[0] of that row gives it (numpy numbers, nan for a missing
+    one, pandas' text); a label no row holds raises, as in pandas (KeyError there).
+    Caveats: labels of several keys, a list or slice of labels, keys that may repeat (after a
+    concat or a sort) and a label of another type than the key are TODOs."""
+    from porter.rules.materialize import series_position  # the value as pandas gives it
+    column = call.receiver
+    assert isinstance(column, Column)
+    key = call.args[0] if len(call.args) == 1 else None
+    frame = column.frame
+    if not (isinstance(key, Opaque) and key.is_const and unique_key(frame)):
+        raise ctx.todo("a label other than one value written in the script, or labels that "
+                       "may repeat: filter the key column and take the value")
+    name = frame.index[0]
+    kinds = {str: "str", int: "int"}
+    if kinds.get(type(key.const)) != frame.dtype(name):
+        raise ctx.todo("a label of another type than the key column (or a key of unknown type)")
+    filtered = derive(frame, frame.code.method("filter", emit.binop(emit.col(name), "==",
+                                                                  emit.lit(key.const))),
+                      same_rows=False)
+    one = Column(ctx.expr(column, frame), frame=filtered, name=column.name, dtype=column.dtype,
+                 refs=column.refs, versions=column.versions, null_is_false=column.null_is_false)
+    return series_position(replace(call, receiver=one, args=(Opaque(emit.lit(0), const=0),)), ctx)
 
 
 # -- query ----------------------------------------------------------------------------------
@@ -1191,3 +1248,85 @@ def computed_names(value: Value) -> Value:
         names = [apply_name_ops(c, value.ops) for c in known]
         return Opaque(emit.lit(names), const=names)
     return Opaque(value.code)
+
+
+# -- select_dtypes ---------------------------------------------------------------------------
+
+# which of pandas' dtype selectors each of porter's column types is picked by (pandas 3.1,
+# measured): text is pandas' str dtype, which "object" still selects; dates of s.dt.date are
+# objects; "number" picks durations too. An int column is float64 in pandas once a value is
+# missing, and a True/False one object: "int", "float", "bool" and their kin are not listed,
+# so they stay TODOs (whether a value is missing is only known when the script runs).
+_DTYPE_SELECTORS = {
+    "int": {"number"},
+    "float": {"number"},
+    "str": {"object", "O", "str", "string"},
+    "date": {"object", "O"},
+    "datetime": {"datetime", "datetime64", "M"},
+    "duration": {"number", "timedelta", "timedelta64", "m"},
+    "category": {"category"},
+    "enum": {"category"},
+}
+_KNOWN_SELECTORS = set().union(*_DTYPE_SELECTORS.values())
+
+
+def _dtype_selectors(call: PandasCall, name: str, position: int) -> set[str]:
+    value = call.arg(name, position, None)
+    if value is None or isinstance(value, Opaque) and value.is_const and value.const is None:
+        return set()
+    items = value.const if isinstance(value, Opaque) and value.is_const \
+        and isinstance(value.const, (list, tuple)) else [value]
+    selectors = set()
+    for item in items:
+        if isinstance(item, str):
+            selectors.add(item)
+        elif isinstance(item, Module) and item.qualname == "numpy.number":
+            selectors.add("number")
+        elif isinstance(item, Opaque) and item.is_const and isinstance(item.const, str):
+            selectors.add(item.const)
+        elif isinstance(item, Opaque) and item.code.text == "object":
+            selectors.add("object")
+        else:
+            raise Unsupported(f"a dtype selector porter does not read: {getattr(item, 'code', item)}")
+    unknown = selectors - _KNOWN_SELECTORS
+    if unknown:
+        raise Unsupported(f"the dtype selector {', '.join(sorted(unknown))!s}: whether pandas "
+                          "holds a column as int64, float64, bool or object depends on the "
+                          "values it holds when the script runs")
+    return selectors
+
+
+@rule("frame.select_dtypes")
+def select_dtypes(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.select_dtypes(include=..., exclude=...) -> df.select(the columns pandas picks).
+
+    Handles: "number" (numbers and durations, not True/False), "object" (text, and dates of
+    s.dt.date, which pandas holds as objects), "str" / "string", "datetime", "timedelta",
+    "category", np.number, given alone or in lists, on a frame whose column types porter
+    knows; the columns in the frame's order.
+    Caveats: "int", "float", "bool" and their kin are TODOs (pandas makes an int column float64
+    once a value is missing, a True/False one object), as is "object" beside a True/False
+    column; a frame with a column of unknown type too.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "include", "exclude", positional=2)
+    include = _dtype_selectors(call, "include", 0)
+    exclude = _dtype_selectors(call, "exclude", 1)
+    if not include and not exclude:
+        raise Unsupported("select_dtypes with neither include nor exclude (pandas raises)")
+    if frame.columns is None or any(frame.dtype(c) is None for c in frame.columns):
+        raise Unsupported("a frame with a column whose type porter does not know")
+    if frame.index:
+        raise Unsupported("a frame with an index of its own")
+    kinds = {c: frame.dtype(c) for c in frame.columns}
+    if "bool" in kinds.values() and (include | exclude) & {"object", "O"}:
+        raise Unsupported("\"object\" beside a True/False column, which pandas holds as object "
+                          "once a value is missing")
+
+    def picked(kind: str | None) -> bool:
+        selectors = _DTYPE_SELECTORS.get(kind or "", set())
+        return (not include or bool(selectors & include)) and not selectors & exclude
+
+    names = [c for c in frame.columns if picked(kinds[c])]
+    return select_columns(frame, frame.code.method("select", *names), names)

@@ -488,8 +488,9 @@ def value_dtype(value: Value) -> str | None:
         return value.dtype
     if isinstance(value, Opaque) and value.is_const:
         return PYTHON_DTYPES.get(type(value.const))
-    if isinstance(value, Scalar) and value.agg is not None and value.agg.dtype == "duration":
-        return "duration"  # a sum of durations (arithmetic takes it as one)
+    if isinstance(value, Scalar) and value.agg is not None and value.agg.dtype in ("duration",
+                                                                                 "datetime"):
+        return value.agg.dtype  # a sum of durations, the min of dates (arithmetic takes them)
     if isinstance(value, Scalar) and value.pytype == "datetime" and value.expr is not None:
         return "datetime"  # a date written in the script (pd.Timestamp("2024-01-01"))
     return None

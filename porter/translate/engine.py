@@ -41,6 +41,10 @@ TODO_PREFIX = "# TODO(porter): "
 MAX_COMMENT = 100
 
 
+# a loop or branch header longer than this is laid out one step per line
+HEADER_LENGTH = 60
+
+
 @dataclass
 class Translation:
     module: cst.Module
@@ -809,6 +813,11 @@ class _Walker:
             return expr
         if self.services.glued(expr):  # `if(df.kg > 0).all():` keeps a valid header
             text = f"({text})"
+        elif len(text) > HEADER_LENGTH and value.code.steps:
+            # a long chain in a `for` or `if` header: one step per line, in parentheses
+            text = emit.layout_chain(value.code, " " * 4, "")
+            if not text.startswith("("):
+                text = f"({text})"
         return cst.parse_expression(text)
 
     def evaluate(self, expr: cst.BaseExpression, env: dict[str, Value]) -> Value:
@@ -1881,6 +1890,7 @@ class _Walker:
                 # the same rows, in the same order, as the frame the Series came from
                 frame = Frame(emit.atom(name), columns=known, rows=rows,
                               index=value.frame.index, labels_intact=value.frame.labels_intact,
+                              index_unnamed=value.frame.index_unnamed,
                               binding=self.statement_key,
                               dtypes=tuple((c, t) for c, t in value.frame.dtypes
                                            if c in value.frame.index)

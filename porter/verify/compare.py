@@ -37,8 +37,11 @@ def normalize(value: object) -> pl.DataFrame:
       keys after `groupby` without `reset_index`) carries data the reader sees, and the converted
       side holds the same data as ordinary columns. Unnamed levels of a MultiIndex are named
       `level_0`, `level_1`... as `reset_index` names them. A default RangeIndex or an unnamed
-      plain index is only row numbering and is dropped; so is an index level whose name is
+      index of whole numbers is only row numbering and is dropped; so is an index level whose name is
       already a column (`set_index(..., drop=False)`), since the column holds the same values.
+      An unnamed index of labels that are not whole numbers (the column names a `df.sum()`
+      is indexed by, `describe`'s statistics) is data: a column "index", as `reset_index`
+      names it.
     - MultiIndex columns are flattened by joining their non-empty parts with "_":
       `("kg", "sum")` -> `kg_sum`, `("city", "")` -> `city`. That is the name a Polars
       aggregation such as `pl.col("kg").sum().alias("kg_sum")` gives the same column.
@@ -142,6 +145,10 @@ def _from_pandas(value: object) -> pl.DataFrame:
             name = f"level_{i}" if level is None else _column_name(level)
             if name not in names:
                 columns.append(_from_pandas_values(name, index.get_level_values(i)))
+    elif index.inferred_type not in ("integer", "empty") and "index" not in names:
+        # labels that are not row numbers (the column names of df.isna().sum(), describe's
+        # statistics) are data the reader sees: "index", as reset_index() names them
+        columns.append(_from_pandas_values("index", index))
     for name, (_, column) in zip(names, value.items()):
         columns.append(_from_pandas_values(name, column))
     return pl.DataFrame(_unique_names(columns))
