@@ -30,8 +30,11 @@ def test_every_ported_entry_has_a_rule():
 def test_every_ported_entry_has_cases_to_measure_it():
     # element.* keys are the parts of a function given to map/apply: their sites are folded
     # into series.map's and series.apply's, whose cases measure them (mappings/elementwise.toml)
+    # an API pandas 3 removed (applymap, append) cannot run there: `measured_as` names the
+    # key whose cases measure what it did
     missing = sorted(e.key for e in TABLE if e.status == "ported" and not e.extra.get("cases")
-                     and not e.key.startswith("element."))
+                     and not e.key.startswith("element.")
+                     and TABLE.get(str(e.extra.get("measured_as", ""))) is None)
     assert not missing, f"ported entries without cases (tests/trial_cases.py): {missing}"
 
 

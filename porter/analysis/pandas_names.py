@@ -112,6 +112,10 @@ MODULE = frozenset((
 ))
 
 
+# DataFrame methods pandas 2 and 3 removed, which old scripts still call (not from dir())
+FRAME_REMOVED = frozenset(('append', 'applymap', 'iteritems'))
+
+
 def _generate() -> str:  # pragma: no cover - run by hand when pandas changes
     import pandas as pd
     from pandas.core.groupby import DataFrameGroupBy, SeriesGroupBy

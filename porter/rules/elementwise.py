@@ -29,6 +29,7 @@ from porter.rules.strings import LIST_STR
 from porter.rules.totals import column_totals, float_sum
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_of, derived_column, value_dtype,
+    with_column_updates,
 )
 from porter.translate.values import Column, Frame, Items, Opaque, Scalar, Value
 
@@ -1713,3 +1714,37 @@ def frame_pipe(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("a function other than a lambda (write its body on the frame, or "
                           "use LazyFrame.pipe once it takes and returns a LazyFrame)")
     return frame_lambda(func.node, frame, ctx)
+
+
+@rule("frame.map", "frame.applymap")
+def frame_map(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.map(func) / df.applymap(func) -> each column mapped as s.map(func) maps it, in one
+    with_columns: pandas' DataFrame.map is Series.map over every column (applymap is its name
+    before pandas 2.1; pandas 3 removed it, and the port runs where pandas no longer does).
+
+    Handles: whatever s.map takes (a lambda, the script's own function, a dict),
+    na_action="ignore", with each column's result typed as Series.map types it.
+    Caveats: a function porter cannot port on one of the columns makes the whole call a TODO;
+    so does a frame whose columns porter does not know or with an index of its own.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "func", "na_action", positional=1)
+    if frame.columns is None or not frame.columns:
+        raise Unsupported("the frame's columns are not known")
+    if frame.index:
+        raise Unsupported("a frame with an index of its own")
+    func = call.arg("func", 0)
+    if isinstance(func, Opaque) and isinstance(func.const, dict):
+        raise Unsupported("a dict: DataFrame.map takes a function (pandas raises TypeError)")
+    kwargs = {"na_action": call.kwargs["na_action"]} if "na_action" in call.kwargs else {}
+    mapped: dict[str, Column] = {}
+    for name in frame.columns:
+        each = PandasCall(column_of(frame, name), "map", (func,), kwargs, node=call.node)
+        result = map_(each, ctx)
+        if not isinstance(result, Column):
+            raise Unsupported("the function gives no column")
+        mapped[name] = result
+    exprs = [c.code.method("alias", name) for name, c in mapped.items()]
+    return with_column_updates(frame, frame.code.method("with_columns", *exprs),
+                               {name: c.dtype for name, c in mapped.items()})

@@ -889,3 +889,36 @@ def _concat_dtypes(frames: list[Frame],
         if len(kinds) == 1 and None not in kinds:
             out.append((column, kinds.pop()))
     return tuple(out)
+
+
+@rule("frame.append")
+def frame_append(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.append(other) -> pd.concat([df, other]) ported: what the method did before pandas 2
+    removed it (the script fails on pandas 2 and 3; the port runs where pandas no longer does).
+
+    Handles: a frame or a list of frames written in the call; ignore_index, sort and
+    verify_integrity as pd.concat takes them.
+    Caveats: appending a row (a dict or a Series) is a TODO: pd.concat with a one-row frame.
+    """
+    ctx.reject_unknown(call, "other", "ignore_index", "verify_integrity", "sort", positional=1)
+    node = call.node
+    other_node = call.first_node("other")
+    if not (isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute)) \
+            or other_node is None:
+        raise Unsupported("append of something porter cannot see")
+    other = call.arg("other", 0)
+    if isinstance(other_node, (cst.List, cst.Tuple)):
+        pieces = [e.value for e in other_node.elements if isinstance(e, cst.Element)]
+        if len(pieces) != len(other_node.elements):
+            raise Unsupported("*unpacking in the list of frames")
+    elif isinstance(other, Frame):
+        pieces = [other_node]
+    else:
+        raise ctx.todo("appending a row (a dict or a Series): pd.concat([df, pd.DataFrame([row])], "
+                       "ignore_index=True), which porter ports")
+    objs = cst.List([cst.Element(node.func.value), *(cst.Element(p) for p in pieces)])
+    stacked = cst.Call(func=cst.Attribute(cst.Name("pd"), cst.Name("concat")),
+                       args=[cst.Arg(objs)])
+    kwargs = {name: call.kwargs[name] for name in ("ignore_index", "verify_integrity", "sort")
+              if name in call.kwargs}
+    return concat(PandasCall(None, "concat", (Opaque(Code("[...]")),), kwargs, node=stacked), ctx)

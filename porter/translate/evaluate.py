@@ -384,7 +384,9 @@ class Evaluator:
             if name in ("loc", "iloc"):
                 return Indexer(Code(self.source(node)), frame=receiver, kind=name,
                                sites=receiver.sites)
-            if name in pandas_names.FRAME and name not in _FRAME_PROPERTIES:
+            if name in pandas_names.FRAME and name not in _FRAME_PROPERTIES \
+                    or name in pandas_names.FRAME_REMOVED and name not in (receiver.columns or ()):
+                # (a method pandas removed, called by an old script, unless it names a column)
                 return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
             if name == "index":
                 self.note_labels_read(receiver)
