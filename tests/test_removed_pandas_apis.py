@@ -1,5 +1,5 @@
 """APIs pandas 2 and 3 removed, which old scripts still call: DataFrame.applymap (now
-DataFrame.map) and DataFrame.append (now pd.concat). Such a script fails on pandas 3.1; its
+DataFrame.map), DataFrame.append (now pd.concat) and fillna(method=...) (now ffill / bfill). Such a script fails on pandas 3.1; its
 port runs. The reference is what the API did, in pandas' own words for it today: each script
 written with applymap / append is converted, and its output compared with the same script
 written with DataFrame.map / pd.concat run by pandas 3.1. DataFrame.map itself is checked
@@ -61,6 +61,12 @@ def _outputs(folder: Path, text: str) -> tuple[str, str]:
     ('trays.append(more)', 'pd.concat([trays, more])'),
     ('trays.append(more, ignore_index=True)', 'pd.concat([trays, more], ignore_index=True)'),
     ('trays.append([more, trays], sort=True)', 'pd.concat([trays, more, trays], sort=True)'),
+    ('trays.fillna(method="ffill")', 'trays.ffill()'),
+    ('trays.fillna(method="backfill", limit=1)', 'trays.bfill(limit=1)'),
+    ('trays.assign(grams=trays["grams"].fillna(method="pad"))',
+     'trays.assign(grams=trays["grams"].ffill())'),
+    ('trays.assign(sown=trays["sown"].fillna(method="bfill"))',
+     'trays.assign(sown=trays["sown"].bfill())'),
 ])
 def test_removed_apis_port_as_their_successors(tmp_path: Path, old: str, new: str) -> None:
     # the reference: pandas 3.1 running the script written with today's name

@@ -229,6 +229,23 @@ def _mixes_types(value: object, dtype: str | None) -> bool:
     return dtype not in ("bool",)
 
 
+_FILL_METHODS = {"ffill": "ffill", "pad": "ffill", "bfill": "bfill", "backfill": "bfill"}
+
+
+def _fill_method(call: PandasCall, ctx: RuleContext) -> Value | None:
+    """fillna(method="ffill" / "pad" / "bfill" / "backfill", limit=) as ffill() / bfill(),
+    which is what it did before pandas 3 removed the keyword (the script fails on pandas 3;
+    the port runs where pandas no longer does)."""
+    if "method" not in call.kwargs:
+        return None
+    ctx.reject_unknown(call, "method", "limit")
+    method = _FILL_METHODS.get(call.const("method", None, None, kinds=(str,)))
+    if method is None:
+        raise Unsupported("a fill method other than ffill, pad, bfill or backfill")
+    kwargs = {"limit": call.kwargs["limit"]} if "limit" in call.kwargs else {}
+    return fill_direction(replace(call, name=method, args=(), kwargs=kwargs), ctx)
+
+
 @rule("series.fillna")
 def series_fillna(call: PandasCall, ctx: RuleContext) -> Value:
     """s.fillna(v) -> .fill_null(v) (v may be a value, a column or a reduction).
@@ -241,6 +258,9 @@ def series_fillna(call: PandasCall, ctx: RuleContext) -> Value:
     """
     column = call.receiver
     assert isinstance(column, Column)
+    filled = _fill_method(call, ctx)
+    if filled is not None:
+        return filled
     ctx.reject_unknown(call, "value", positional=1)
     value = call.arg("value", 0)
     if isinstance(value, Opaque) and _is_nan(value.const):
@@ -397,6 +417,9 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
+    filled = _fill_method(call, ctx)
+    if filled is not None:
+        return filled
     ctx.reject_unknown(call, "value", positional=1)
     value = call.arg("value", 0)
     if isinstance(value, Opaque) and isinstance(value.const, dict):
