@@ -13,7 +13,7 @@ from porter.rules import rule
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, column_of, derive, derived_column,
 )
-from porter.translate.values import Column, Frame, Opaque, Value
+from porter.translate.values import Column, Frame, Opaque, Value, fresh_token
 
 KEEP = {"first": "first", "last": "last", False: "none"}
 _ROW = "__row"  # the row number drop_duplicates(keep="last") sorts the kept rows back by
@@ -721,3 +721,52 @@ def series_rank(call: PandasCall, ctx: RuleContext) -> Value:
             else column.code.method("count")
         rank = emit.call(DIVIDE_FUNCTION, rank, total)
     return derived_column(column, rank, dtype="float")
+
+
+@rule("frame.sort_index", "series.sort_index")
+def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
+    """sort_index() -> nothing on a frame still labelled 0..n-1 (reverse() for
+    ascending=False); a sort by the key column on a table labelled by one key of distinct
+    values (a groupby's, df.sum()'s column names).
+
+    Handles: a missing key last (na_position="last"); text by code point in both.
+    Caveats: labels after a filter or a sort (row numbers porter does not keep), labels that
+    may repeat (pandas' quicksort puts ties in no set order), several keys, axis=1, level=,
+    key= and na_position="first" are TODOs.
+    """
+    from porter.rules.selection import unique_key
+    receiver = call.receiver
+    frame = receiver.frame if isinstance(receiver, Column) else receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "axis", "ascending", "kind", "na_position", "inplace",
+                       "ignore_index")
+    if call.const("axis", None, 0, kinds=(int, str)) not in (0, "index", "rows"):
+        raise ctx.todo("sorting the columns by name (axis=1): select them in sorted order")
+    if call.const("na_position", None, "last", kinds=(str,)) != "last":
+        raise ctx.todo('na_position="first"')
+    ascending = call.const("ascending", None, True, kinds=(bool,))
+    if not frame.index and frame.labels_intact:
+        # labels 0..n-1 in order: sorted already (reversed when descending)
+        code = frame.code if ascending else frame.code.method("reverse")
+    elif unique_key(frame):
+        key = frame.index[0]
+        kwargs: dict[str, Any] = {"nulls_last": True}
+        if not ascending:
+            kwargs["descending"] = True
+        code = frame.code.method("sort", key, **kwargs)
+    else:
+        raise ctx.todo("row labels that are original row numbers after a filter or sort, or "
+                       "keys that may repeat: keep them in a column (with_row_index) and sort "
+                       "by it")
+    if call.const("ignore_index", None, False, kinds=(bool,)):
+        raise ctx.todo("ignore_index=True: drop the key columns after the sort")
+    if ascending and not frame.index:
+        sorted_frame = frame  # nothing changed
+    else:
+        rows = fresh_token()
+        # a groupby's table sorted by its key again is in the groupby's own order
+        grouped = rows if ascending and frame.grouped_rows == frame.rows else None
+        sorted_frame = derive(frame, code, same_rows=False, rows=rows, grouped_rows=grouped)
+    if isinstance(receiver, Column):
+        return replace(receiver, frame=sorted_frame, sites=())
+    return sorted_frame
