@@ -474,7 +474,20 @@ class _Walker:
                 return [first, *rest, new[0].with_changes(leading_lines=()), *new[1:]], after
         changes: dict[str, Any] = {}
         header_from, header_sites_from = len(self.sites), len(self.header_sites)
-        if isinstance(stmt, cst.For):
+        pairs = self.column_pairs(stmt, env) if isinstance(stmt, cst.For) else None
+        if pairs is not None:
+            # `for name, col in df.items():` -> a loop over the column names, `col` standing
+            # for the column of that name (pl.col(name)) in the body
+            frame, key, series = pairs
+            iter_value = Evaluator(env, self.services).dispatch(
+                "frame.columns", PandasCall(frame, "columns", node=stmt.iter), stmt.iter)
+            changes["iter"] = self.header(stmt.iter, env, stmt, iter_value)
+            changes["target"] = cst.Name(key)
+            loop_env = dict(env)
+            loop_env[key] = Opaque(emit.atom(key), pytype="str",
+                                   choices=tuple(frame.columns or ()))
+            loop_env[series] = Column(emit.col(emit.atom(key)), frame=frame, name=None)
+        elif isinstance(stmt, cst.For):
             iter_value = self.evaluate(stmt.iter, env)
             if isinstance(iter_value, Frame):  # `for col in df:` iterates pandas' column names
                 iter_value = Evaluator(env, self.services).dispatch(
@@ -602,6 +615,26 @@ class _Walker:
         else:
             kept = stmt.with_changes(leading_lines=[*stmt.leading_lines, *comments])
         return [*before, kept], env
+
+    def column_pairs(self, stmt: cst.For, env: dict[str, Value]) -> tuple[Frame, str, str] | None:
+        """`for name, col in df.items():` (or iteritems(), which pandas 2 removed) over a frame
+        whose columns porter knows and that has no index of its own: the frame and the two
+        names. The body must not assign either name."""
+        call = stmt.iter
+        if not (isinstance(call, cst.Call) and not call.args and isinstance(call.func, cst.Attribute)
+                and call.func.attr.value in ("items", "iteritems")
+                and isinstance(stmt.target, cst.Tuple) and len(stmt.target.elements) == 2
+                and all(isinstance(e.value, cst.Name) for e in stmt.target.elements)):
+            return None
+        frame = self.evaluate(call.func.value, env)
+        if not isinstance(frame, Frame) or frame.columns is None or frame.index:
+            return None
+        key, series = (e.value.value for e in stmt.target.elements)  # type: ignore[attr-defined]
+        assigned = _Assigned()
+        stmt.body.visit(assigned)
+        if {key, series} & assigned.names:
+            return None
+        return frame, key, series
 
     def frames_changed_by_a_loop(self, stmt: cst.For, env: dict[str, Value]) -> tuple[list[str], SiteDraft | None]:
         """`for frame in [a, b]: frame["c"] = ...` (or over `zip([a, b], names)`,
@@ -2768,6 +2801,28 @@ def _is_collected(code: Code) -> bool:
 def _index_of(target: cst.Subscript) -> cst.BaseExpression:
     element = target.slice[0].slice
     return element.value if isinstance(element, cst.Index) else cst.Name("None")
+
+
+class _Assigned(cst.CSTVisitor):
+    """The names a block assigns (=, op=, for targets, with ... as)."""
+
+    def __init__(self) -> None:
+        self.names: set[str] = set()
+
+    def visit_AssignTarget(self, node: cst.AssignTarget) -> None:
+        self.names.update(_target_names(node.target))
+
+    def visit_AugAssign(self, node: cst.AugAssign) -> None:
+        self.names.update(_target_names(node.target))
+
+    def visit_AnnAssign(self, node: cst.AnnAssign) -> None:
+        self.names.update(_target_names(node.target))
+
+    def visit_For(self, node: cst.For) -> None:
+        self.names.update(_target_names(node.target))
+
+    def visit_AsName(self, node: cst.AsName) -> None:
+        self.names.update(_target_names(node.name))
 
 
 def _target_names(target: cst.BaseExpression) -> list[str]:
