@@ -1335,3 +1335,239 @@ def total_seconds(call: PandasCall, ctx: RuleContext) -> Value:
                                                                     million)))
     code = _dt(column).method("total_microseconds").method("pipe", Code(f"lambda us: {body.text}"))
     return _result(column, code, "float")
+
+
+# pd.period_range ------------------------------------------------------------------------------
+
+# pandas' dtype of a range's periods -> the frequency porter writes their text for (_PERIODS)
+_RANGE_KINDS = {"period[D]": "D", "period[h]": "h", "period[min]": "min", "period[W-SUN]": "W",
+                "period[M]": "M", "period[Q-DEC]": "Q", "period[Y-DEC]": "Y"}
+_MOST_PERIODS = 100_000  # a longer range is made by pandas at run time (a TODO), not here
+_WRITTEN_OUT = 24  # up to this many periods the texts are written out as a list
+_MOST_FORMATTED = 1_000  # strftime's texts are always written out: up to this many
+# strftime directives whose text follows the locale (the month's name, AM/PM)
+_LOCALE_DIRECTIVES = re.compile(r"%[aAbBpcxX]")
+
+
+def _parents(module: Any) -> dict[int, Any]:
+    import ast
+    return {id(child): node for node in ast.walk(module) for child in ast.iter_child_nodes(node)}
+
+
+def _plain_frame_columns(module: Any) -> set[int]:
+    """The ids of the dict values of `pd.DataFrame({...})` calls given nothing but the data and
+    columns= (as construct._frame_columns_only reads them)."""
+    import ast
+    columns: set[int] = set()
+    for node in ast.walk(module):
+        if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
+                and node.func.attr == "DataFrame":
+            data = node.args[0] if node.args else next(
+                (k.value for k in node.keywords if k.arg == "data"), None)
+            plain = len(node.args) <= 2 and all(k.arg in ("data", "columns") for k in node.keywords)
+            if isinstance(data, ast.Dict) and plain:
+                columns.update(id(v) for v in data.values)
+    return columns
+
+
+def _read_as_text(module: Any, name: str, parents: dict[int, Any]) -> bool:
+    """Whether every read of `name` in the script gives it as its text: f"{p}" (or {p!s}),
+    str(p) or print(..., p, ...), where a Period and the text of it give the same."""
+    import ast
+    for node in ast.walk(module):
+        if not (isinstance(node, ast.Name) and node.id == name and isinstance(node.ctx, ast.Load)):
+            continue
+        parent = parents.get(id(node))
+        if isinstance(parent, ast.FormattedValue) and parent.format_spec is None \
+                and parent.conversion in (-1, ord("s")):
+            continue
+        if isinstance(parent, ast.Call) and isinstance(parent.func, ast.Name) \
+                and node in parent.args and not parent.keywords \
+                and (parent.func.id == "print" or parent.func.id == "str" and len(parent.args) == 1):
+            continue
+        return False
+    return True
+
+
+def _range_used_as_ported(module: Any, text: str) -> tuple[int, int] | None:
+    """Whether each `pd.period_range(...)` written as `text` is used where porter ports it:
+    a column of a frame written out (`pd.DataFrame({"month": <it>})`), the sequence of a `for`
+    loop whose variable is only read as text (f"{p}", str(p), print(p)), or either of these
+    after `.astype(str)` or `.strftime("<format>")`; itself or through a name read only there.
+    The lines of the first such call, or None."""
+    import ast
+    if not isinstance(module, ast.Module):
+        return None
+    try:
+        wanted = ast.unparse(ast.parse(text.strip(), mode="eval").body)
+    except SyntaxError:
+        return None
+    parents = _parents(module)
+    columns = _plain_frame_columns(module)
+
+    def ported(node: Any) -> bool:
+        parent = parents.get(id(node))
+        text_already = False
+        if isinstance(parent, ast.Attribute) and parent.value is node \
+                and parent.attr in ("astype", "strftime"):
+            call = parents.get(id(parent))
+            if not (isinstance(call, ast.Call) and call.func is parent and len(call.args) == 1
+                    and not call.keywords):
+                return False
+            arg = call.args[0]
+            if parent.attr == "astype" and not (
+                    isinstance(arg, ast.Name) and arg.id == "str"
+                    or isinstance(arg, ast.Constant) and arg.value == "str"):
+                return False
+            if parent.attr == "strftime" and not (isinstance(arg, ast.Constant)
+                                                  and isinstance(arg.value, str)):
+                return False
+            node, parent, text_already = call, parents.get(id(call)), True
+        if id(node) in columns:
+            return True
+        if isinstance(parent, ast.For) and parent.iter is node:
+            # text: any use of the variable reads a str in both
+            return isinstance(parent.target, ast.Name) and (
+                text_already or _read_as_text(module, parent.target.id, parents))
+        return False
+
+    names: set[str] = set()
+    for node in ast.walk(module):
+        if isinstance(node, ast.Assign) and len(node.targets) == 1 \
+                and isinstance(node.targets[0], ast.Name) and ast.unparse(node.value) == wanted:
+            names.add(node.targets[0].id)
+    lines: tuple[int, int] | None = None
+    for node in ast.walk(module):
+        if isinstance(node, ast.Call) and ast.unparse(node) == wanted:
+            if lines is None:
+                lines = (node.lineno, node.end_lineno or node.lineno)
+            parent = parents.get(id(node))
+            bound = isinstance(parent, ast.Assign) and parent.value is node \
+                and len(parent.targets) == 1 and isinstance(parent.targets[0], ast.Name) \
+                and parent.targets[0].id in names
+            if not bound and not ported(node):
+                return None
+        if isinstance(node, ast.Name) and node.id in names and isinstance(node.ctx, ast.Load) \
+                and not ported(node):
+            return None
+    return lines
+
+
+def _period_texts_code(stamps: Any, kind: str, texts: list[str], ctx: RuleContext) -> Code:
+    """The periods' texts as Polars makes them: a list written out when short, else the text
+    of each period's first instant (as dt.to_period's columns are written), checked at
+    convert time to be pandas' texts."""
+    if len(texts) <= _WRITTEN_OUT:
+        return emit.lit(list(texts))
+    import polars as pl
+    from porter.rules.construct import _datetime_code
+    freq = _RANGE_KINDS[kind]
+    every, text_of = _PERIODS[freq]
+    first, last = stamps[0].start_time, stamps[-1].start_time
+    made = emit.pl("datetime_range", _datetime_code(first), _datetime_code(last), every)
+    code = emit.pl("select", text_of(made)).method("to_series")
+    try:
+        checked = eval(code.text, {"pl": pl}).to_list()  # noqa: S307 (porter's own code)
+    except Exception:  # noqa: BLE001 (Polars refuses it: not ported)
+        checked = None
+    if checked != list(texts):
+        raise ctx.todo("Polars' texts of the periods differ from pandas' here")  # checked
+    return code
+
+
+@rule("pd.period_range")
+def period_range(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.period_range(start, end / periods, freq) -> the periods' texts, made by pandas at
+    convert time: a list written out (or pl.datetime_range(...) formatted, for a long range).
+
+    Handles: D, h, min, W / W-SUN, M, Q / Q-DEC, Y / Y-DEC (pandas' Y and A: pandas 3 refuses
+    "A"), dates as text, two of start / end / periods; used as a column of a frame written
+    out (`pd.DataFrame({"month": pd.period_range(...)})`, dtype period[M], held as text as
+    dt.to_period columns are, so it merges, groups and sorts with them), the sequence of a
+    `for` loop whose variable is read as text (f"{p}", str(p), print(p)), or either after
+    astype(str) or strftime("<format>") (str columns, texts made by pandas).
+    Caveats: other frequencies, a start or end computed at run time, an empty range, name=,
+    and the range used any other way (len(), list(), isin, the periods' attributes or
+    arithmetic in the loop, pd.DataFrame with index=) are TODOs: pandas' PeriodIndex.
+    """
+    import warnings
+    import pandas as pd
+    ctx.reject_unknown(call, "start", "end", "periods", "freq", positional=4)
+    assert call.node is not None
+    import libcst as cst
+    original = cst.Module([]).code_for_node(call.node)
+    lines = _range_used_as_ported(ctx.python_module, original)
+    if lines is None:
+        raise ctx.todo("porter ports a period range as a column of a frame written out "
+                       "(pd.DataFrame({\"month\": pd.period_range(...)})), or the sequence of "
+                       "a loop that reads each period as its text (f\"{p}\", str(p), print(p)), "
+                       "itself or after astype(str) or strftime(...); here pandas' PeriodIndex "
+                       "is used otherwise")
+    start = call.const("start", 0, None, kinds=(str,))
+    end = call.const("end", 1, None, kinds=(str,))
+    periods = call.const("periods", 2, None, kinds=(int,))
+    freq = call.const("freq", 3, None, kinds=(str,))
+    if isinstance(periods, bool) or (start, end, periods).count(None) != 1:
+        raise ctx.todo("exactly two of start, end and periods are ported")
+    if periods is not None and periods > _MOST_PERIODS:
+        raise ctx.todo(f"over {_MOST_PERIODS:,} periods")
+    try:
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            stamps = pd.period_range(start, end, periods, freq)
+    except (ValueError, TypeError, OverflowError) as error:
+        raise ctx.todo(f"pandas raises here ({error})") from None
+    kind = str(stamps.dtype)
+    if kind not in _RANGE_KINDS:
+        raise ctx.todo(f"periods of {kind}: porter ports {', '.join(_RANGE_KINDS)}")
+    if len(stamps) == 0:
+        raise ctx.todo("an empty range (pandas' period dtype, no value to type it by here)")
+    if len(stamps) > _MOST_PERIODS:
+        raise ctx.todo(f"over {_MOST_PERIODS:,} periods")
+    if stamps[0].start_time.year < 1000 or stamps[-1].end_time.year > 9999:
+        # the texts order as the periods do only with years of four digits
+        raise ctx.todo("years outside 1000-9999")
+    texts = [str(p) for p in stamps]
+    if list(stamps.astype(str)) != texts:
+        raise ctx.todo("pandas writes these periods otherwise than str() gives them")
+    code = _period_texts_code(stamps, kind, texts, ctx)
+    from porter.rules.construct import PeriodTexts
+    return Opaque(code, const=PeriodTexts(code, len(texts), lines, texts=tuple(texts),
+                                          period=kind, made=(start, end, periods, freq)))
+
+
+@rule("periods.range.astype", "periods.range.strftime")
+def period_range_text(call: PandasCall, ctx: RuleContext) -> Value:
+    """period_range(...).astype(str) / .strftime(format) -> the texts pandas makes of the
+    periods, at convert time (a str column in a frame written out, str values in a loop)."""
+    import warnings
+    import pandas as pd
+    from porter.rules.construct import PeriodTexts
+    periods = call.receiver
+    assert isinstance(periods, Opaque) and isinstance(periods.const, PeriodTexts)
+    ctx.reject_unknown(call, "dtype" if call.name == "astype" else "date_format", positional=1)
+    made = periods.const
+    if call.name == "astype":
+        target = call.arg("dtype", 0)
+        if not (isinstance(target, Opaque) and target.code.text in ("str", '"str"', "'str'")):
+            raise ctx.todo("periods cast to something other than str")
+        code, texts = periods.code, made.texts  # the same texts: the range's own value
+    else:
+        pattern = call.const("date_format", 0, kinds=(str,))
+        if _LOCALE_DIRECTIVES.search(pattern):
+            reason = ("names of months and days (and AM/PM) are written in the locale of the "
+                      "conversion, not of the run")
+            ctx.lower(reason, 0.95)
+            # a frame written out around it carries the site (its constant carries none)
+            made = replace(made, made_by=("periods.range.strftime", "period-range-text", 0.95,
+                                          reason))
+        if made.size > _MOST_FORMATTED:
+            raise ctx.todo(f"over {_MOST_FORMATTED:,} periods formatted")
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            texts = tuple(pd.period_range(*made.made).strftime(pattern))
+        code = emit.lit(list(texts))
+    # a range bound to a name has its site where it is bound; one written here, here
+    lines = (0, 0) if periods.code.text.isidentifier() else made.lines
+    return Opaque(code, const=replace(made, code=code, texts=texts, period="str", lines=lines),
+                  sites=periods.sites)
