@@ -1105,12 +1105,15 @@ def to_timedelta(call: PandasCall, ctx: RuleContext) -> Value:
 
     A column of numbers with unit= -> pl.duration(days=pl.col("n")) (weeks= … microseconds=):
     NaN and None become missing, as NaT. A column of text with errors="coerce" ->
-    "[-][D days ]H:MM:SS[.ffffff]" read by str.extract_groups into pl.duration (see
-    _text_timedelta), anything else missing.
+    pandas_duration(texts), defined at the top of the script: "5h", "1h30m", "2 days 3
+    hours", "[-][D days ]H:MM:SS[.ffffff]", "-1 days +23:00:00", ISO 8601 "P1DT2H", read by
+    str.extract_groups into pl.duration as pandas reads them (see _TEXT_DURATION), anything
+    else missing; unit= changes nothing there, as in pandas.
     Caveats: a float column keeps fractions below a microsecond in pandas (nanoseconds), not
-    here (0.95); text in a form pandas reads beyond that one is missing here (0.9); a column
-    of text without errors="coerce" (pandas raises on a text it cannot read), a column without
-    unit= that is not text, a list, a fractional number alone (nanoseconds in pandas) are TODOs.
+    here (0.95); text in a form pandas reads beyond these is missing here (0.9: a number
+    alone, a fraction with a unit, nanoseconds); a column of text without errors="coerce"
+    (pandas raises on a text it cannot read, and on text with unit=), a column without unit=
+    that is not text, a list, a fractional number alone (nanoseconds in pandas) are TODOs.
     """
     ctx.reject_unknown(call, "arg", "unit", "errors", positional=2)
     errors = call.const("errors", None, "raise")
@@ -1133,48 +1136,112 @@ def to_timedelta(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 # pandas reads a duration's text character by character (parse_timedelta_string): spaces,
-# commas and "+" are skipped wherever they are, a "-" is only allowed before everything else,
-# "H:M:S" adds each part (25:00:00 is 1 day 01:00:00, 5:60:00 is 6:00:00), "N days" (day, d,
-# D, any case) before it adds days, and the "-" then makes only the days negative
-# ("-1 days +02:00:00" is -22 hours); up to six decimals of a second are microseconds. The
-# digit counts keep every value far below pandas' limit (±106751 days, in nanoseconds)
-# [0-9], not \d: pandas reads ASCII digits only, Polars' \d matches every script's digits
-_TEXT_DURATION = ("^(?:(?<days>-?[0-9]{1,4})(?i:days?|d)|(?<sign>-?))"
-                  "(?<hours>[0-9]{1,6}):(?<minutes>[0-9]{1,6}):(?<seconds>[0-9]{1,8})"
-                  "(?:[.](?<fraction>[0-9]{1,6}))?$")
+# commas and "+" are skipped wherever they are, a "-" is only allowed before everything else;
+# "<number><unit>" parts add up ("1h30m", "2 days 3 hours", "5 hours 30 minutes"), each unit
+# spelt as pandas spells it in any case (but "M", a month, is refused); "H:M:S" after them
+# adds each part (25:00:00 is 1 day 01:00:00, 5:60:00 is 6:00:00); the "-" makes every unit
+# part negative, and the clock too only when no unit part came before it ("-1 days
+# +02:00:00" is -22 hours, "-5:00:00" is -5 hours); up to six decimals of a second are
+# microseconds. porter reads the unit parts in the order weeks, days, hours, minutes,
+# seconds, milliseconds, microseconds, each once, as whole numbers (pandas reads a fraction
+# through a float, "1.1h" is 1:05:59.999999999); its digit counts keep every value far below
+# pandas' limit (±106751 days, in nanoseconds).
+# [0-9], not \d: pandas reads ASCII digits only, Polars' \d matches every script's digits;
+# each letter as [xX], not (?i): Polars' case folding would take "ſ" for "s" and "K" for "k"
+
+
+def _spelt(*words: str) -> str:
+    """The unit words, each letter in either case ("m" alone: "M" is a month to pandas)."""
+    return "|".join("".join(f"[{c}{c.upper()}]" if c.isalpha() and c.isascii() else c
+                            for c in w) if w != "m" else "m" for w in words)
+
+
+_UNIT_PARTS = (  # (pl.duration keyword, digits, pandas' spellings, longest first)
+    ("weeks", 3, ("w",)),
+    ("days", 4, ("days", "day", "d")),
+    ("hours", 5, ("hours", "hour", "hr", "h")),
+    ("minutes", 7, ("minutes", "minute", "min", "m")),
+    ("seconds", 9, ("seconds", "second", "sec", "s")),
+    ("milliseconds", 9, ("milliseconds", "millisecond", "millis", "milli", "ms")),
+    ("microseconds", 9, ("microseconds", "microsecond", "micros", "micro", "us", "µs")),
+)
+_TEXT_DURATION = ("^(?<sign>-?)" + "".join(
+    f"(?:(?<{k}>[0-9]{{1,{n}}})(?:{_spelt(*words)}))?" for k, n, words in _UNIT_PARTS)
+    + "(?:(?<clock_h>[0-9]{1,6}):(?<clock_m>[0-9]{1,6}):(?<clock_s>[0-9]{1,8})"
+    "(?:[.](?<fraction>[0-9]{1,6}))?)?$")
+# ISO 8601 as pandas reads it (parse_iso_format_string), on the text as written: "P1DT2H",
+# "PT2H30M", "-P1D", "P0DT0H0M1.5S", up to six decimals of a second. pandas reads other
+# forms its own way ("PT1.5H" is 5 hours and 1 second, "P1M" a minute): missing here
+_ISO_DURATION = ("^(?<sign>-?)P(?:(?<days>[0-9]{1,4})D)?(?:T(?:(?<hours>[0-9]{1,2})H)?"
+                 "(?:(?<minutes>[0-9]{1,2})M)?(?:(?<seconds>[0-9]{1,5})"
+                 "(?:[.](?<fraction>[0-9]{1,6}))?S)?)?$")
+
+
+# A function, defined once at the top of a converted script, that reads durations' text as
+# pandas does (translate/imports.py)
+DURATION_FUNCTION = "pandas_duration"
+_PART_NAMES = ", ".join(f'"{k}"' for k, _, _ in _UNIT_PARTS)
+DURATION_DEFINITION = f'''\
+def pandas_duration(text):
+    """Durations written as text, read as pandas' to_timedelta(text, errors="coerce") reads
+    "5h", "1h30m", "2 days 3 hours", "1 day 02:00:00", "-1 days +23:00:00", "00:30:00" and
+    ISO 8601 "P1DT2H"; any other text is missing."""
+    iso = text.str.extract_groups({_ISO_DURATION!r})
+    # spaces, commas and "+" are skipped wherever they are, as pandas skips them
+    parts = text.str.replace_all("[ ,+]", "").str.extract_groups(
+        {_TEXT_DURATION!r}
+    )
+
+    def whole(t, name):
+        return t.struct.field(name).cast(pl.Int64).fill_null(0)
+
+    def read(t, *names):
+        return pl.any_horizontal([t.struct.field(name).is_not_null() for name in names])
+
+    def sign(t, where):
+        return pl.when((t.struct.field("sign") == "-") & where).then(-1).otherwise(1)
+
+    def clock(t, **more):
+        micro = t.struct.field("fraction").str.pad_end(6, "0").cast(pl.Int64).fill_null(0)
+        return pl.duration(**more, microseconds=micro)
+
+    units = ({_PART_NAMES})
+    written = read(parts, *units)
+    # "-" makes the unit parts negative, and the clock after them only when there are none
+    from_text = pl.when(written | read(parts, "clock_h")).then(
+        pl.duration(**{{unit: whole(parts, unit) for unit in units}}) * sign(parts, pl.lit(True))
+        + clock(parts, hours=whole(parts, "clock_h"), minutes=whole(parts, "clock_m"),
+                seconds=whole(parts, "clock_s")) * sign(parts, ~written)
+    )
+    iso_units = ("days", "hours", "minutes", "seconds")
+    from_iso = pl.when(read(iso, *iso_units)).then(
+        clock(iso, **{{unit: whole(iso, unit) for unit in iso_units}}) * sign(iso, pl.lit(True))
+    )
+    return pl.coalesce(from_iso, from_text).name.keep()  # the text's name, as pandas keeps it
+'''
 
 
 def _text_timedelta(call: PandasCall, column: Column, errors: str, ctx: RuleContext) -> Column:
-    """pd.to_timedelta(texts, errors="coerce") -> the parts of "[-][D days ]H:MM:SS[.ffffff]"
-    (str.extract_groups, spaces, commas and "+" taken out first as pandas skips them) added
-    up by pl.duration; a text of any other form, "", "NaT" and a missing value are missing."""
-    if call.has("unit", 1):
-        raise ctx.todo("a column of text with unit= (pandas refuses it)")
+    """pd.to_timedelta(texts, errors="coerce") -> pandas_duration(texts): the parts pandas
+    reads (see _TEXT_DURATION and _ISO_DURATION), by str.extract_groups, added up by
+    pl.duration; a text of any other form, "", "NaT" and a missing value are missing."""
     if errors != "coerce":
         raise ctx.todo("a column of text without errors='coerce': pandas raises on a text it "
-                       "cannot read (write errors='coerce' to have it missing)")
-    ctx.lower("text in another form pandas reads is missing here: units (\"5h\", \"2 days\" "
-              "without a time, \"1 hours 02:00:00\"), ISO 8601 (\"P1D\"), a number alone "
-              "(nanoseconds), more than six decimals (nanoseconds: the whole column's unit), "
-              "more than 4 digits of days or 6 of hours; a column with no duration at all is "
-              "timedelta64[s] in pandas, Duration(us) here", 0.9)
-    def field(name: str) -> Code:
-        return emit.atom("t").attr("struct").method("field", name)
-    whole = lambda name: field(name).method("cast", emit.atom("pl.Int64"))  # noqa: E731
-    micro = field("fraction").attr("str").method("pad_end", 6, "0") \
-        .method("cast", emit.atom("pl.Int64")).method("fill_null", 0)
-    days = emit.pl("duration", days=whole("days").method("fill_null", 0))
-    sign = emit.when(emit.binop(field("sign"), "==", "-"), -1, 1)
-    # laid out over lines (a lambda is one expression, which the chain layout keeps whole)
-    parts = ",\n".join(f"        {k}={v.text}" for k, v in (
-        ("hours", whole("hours")), ("minutes", whole("minutes")), ("seconds", whole("seconds")),
-        ("microseconds", micro)))
-    body = (f"lambda t: (\n    {days.text}\n    + pl.duration(\n{parts},\n    )\n"
-            f"    * {sign.text}\n)")
-    code = column.code.attr("str").method("replace_all", "[ ,+]", "") \
-        .attr("str").method("extract_groups", _TEXT_DURATION) \
-        .method("pipe", Code(body))
-    return derived_column(column, code, dtype="duration", name=column.name)
+                       "cannot read, and on any text with unit= (write errors='coerce' to have "
+                       "it missing)")
+    if call.has("unit", 1):
+        # with errors="coerce" pandas reads each text as without unit= ("42" is 42
+        # nanoseconds, "5h" five hours); it raises on a unit it does not know, or M and Y
+        _unit(call.const("unit", 1, None), ctx)
+    ctx.lower("text in another form pandas reads is missing here: a number alone "
+              "(nanoseconds), a fraction with a unit (\"1.5h\": pandas reads it through a "
+              "float), nanoseconds or more than six decimals (the whole column's unit becomes "
+              "nanoseconds), units out of order or repeated (\"30m1h\"), ISO 8601 weeks, "
+              "fractions of other than seconds or a sign inside (\"P1W\", \"P-1D\"), more "
+              "digits than porter reads (4 of days, 5 of hours, 6 of clock hours); a column "
+              "with no duration at all is timedelta64[s] in pandas, Duration(us) here", 0.9)
+    return derived_column(column, emit.call(DURATION_FUNCTION, column.code), dtype="duration",
+                          name=column.name)
 
 
 _DURATION_KEYWORDS = {unit: keyword for keyword, unit in _KEYWORDS.items()}
