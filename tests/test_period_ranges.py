@@ -177,8 +177,12 @@ def test_strftime_with_month_names_is_lowered_for_the_locale():
     ('rng = pd.period_range("2024-01", periods=3, freq="M")\n'
      'cal = pd.DataFrame({"p": rng})\nn = len(rng)', "used otherwise"),
     ('cal = list(pd.period_range("2024-01", periods=3, freq="M"))', "used otherwise"),
+    ('rng = pd.period_range("2024-01", periods=3, freq="M")\n'
+     'log["p"] = log["stored"].dt.to_period("M")\ncal = log[log["p"].isin(rng)]',
+     "used otherwise"),
     ('log["p"] = log["stored"].dt.to_period("M")\n'
-     'cal = log[log["p"].isin(pd.period_range("2024-01", periods=3, freq="M"))]',
+     'cal = log[log["p"].isin(pd.period_range("2024-01", periods=3, freq="M"))]\n'
+     'for m in pd.period_range("2024-01", periods=3, freq="M"):\n    print(m)',
      "used otherwise"),
     ('for p in pd.period_range("2024-01", periods=3, freq="M"):\n    print(p.month)',
      "used otherwise"),
@@ -217,3 +221,41 @@ def test_period_ranges_porter_does_not_port_stay_todos(body, reason, folder):
 ])
 def test_what_stays_pandas_still_runs_as_pandas(body, folder):
     same_text(HEAD + body, folder, DEPOSITS)
+
+
+@pytest.mark.parametrize("freq, bounds", [
+    pytest.param("M", '"2024-01", "2024-03"', id="months"),
+    pytest.param("Q", '"2023Q4", periods=2', id="quarters"),
+    pytest.param("W", '"2024-02-26", periods=2', id="weeks"),
+    pytest.param("D", '"2024-02-27", periods=40', id="many days"),
+    pytest.param("Y", '"2024", periods=1', id="a year"),
+])
+def test_a_period_column_in_a_range(freq, bounds, folder):
+    """isin of a range of the same frequency: the periods' texts; a missing period is in none."""
+    result = same_text(HEAD + (
+        f'log["p"] = log["stored"].dt.to_period("{freq}")\n'
+        f'kept = log[log["p"].isin(pd.period_range({bounds}, freq="{freq}"))]\n'
+        'kept.to_csv("kept.csv", index=False)\n'
+        f'log["out"] = ~log["p"].isin(pd.period_range({bounds}, freq="{freq}"))\n'
+        'log.to_csv("all.csv", index=False)\n'
+        'print(len(kept), log["out"].sum())\n'
+    ), folder, DEPOSITS)
+    assert not result.todos, result.converted_text
+    assert "pd.period_range" not in result.converted_text
+
+
+@pytest.mark.parametrize("use", [
+    # pandas: a period never equals a text, nor a period of another frequency (all False)
+    'log[log["p"].isin(["2024-01", "2024-03"])]',
+    'log[log["p"].isin(pd.period_range("2024Q1", periods=2, freq="Q"))]',
+    # a range compared with timestamps: pandas' own answer (a text column raises in pandas)
+    'log[log["stored"].isin(pd.period_range("2024-01", periods=3, freq="M"))]',
+])
+def test_isin_porter_does_not_port_keeps_pandas_answer(use, folder):
+    result = same_text(HEAD + (
+        'log["p"] = log["stored"].dt.to_period("M")\n'
+        f'kept = {use}\n'
+        'kept.to_csv("kept.csv", index=False)\n'
+        'print(len(kept))\n'
+    ), folder, DEPOSITS)
+    assert result.todos, result.converted_text

@@ -1456,12 +1456,13 @@ def _read_as_text(module: Any, name: str, parents: dict[int, Any]) -> bool:
     return True
 
 
-def _range_used_as_ported(module: Any, text: str) -> tuple[int, int] | None:
+def _range_used_as_ported(module: Any, text: str) -> tuple[tuple[int, int], bool] | None:
     """Whether each `pd.period_range(...)` written as `text` is used where porter ports it:
     a column of a frame written out (`pd.DataFrame({"month": <it>})`), the sequence of a `for`
     loop whose variable is only read as text (f"{p}", str(p), print(p)), or either of these
-    after `.astype(str)` or `.strftime("<format>")`; itself or through a name read only there.
-    The lines of the first such call, or None."""
+    after `.astype(str)` or `.strftime("<format>")`, itself or through a name read only there;
+    or written as the values of `isin` (`s.isin(pd.period_range(...))`). The lines of the
+    first such call, and whether every call is the values of isin; or None."""
     import ast
     if not isinstance(module, ast.Module):
         return None
@@ -1471,8 +1472,18 @@ def _range_used_as_ported(module: Any, text: str) -> tuple[int, int] | None:
         return None
     parents = _parents(module)
     columns = _plain_frame_columns(module)
+    in_isin: list[bool] = []
+
+    def isin_values(node: Any) -> bool:
+        parent = parents.get(id(node))
+        return isinstance(node, ast.Call) and isinstance(parent, ast.Call) \
+            and len(parent.args) == 1 and parent.args[0] is node and not parent.keywords \
+            and isinstance(parent.func, ast.Attribute) and parent.func.attr == "isin"
 
     def ported(node: Any) -> bool:
+        in_isin.append(isin_values(node))
+        if in_isin[-1]:
+            return True
         parent = parents.get(id(node))
         text_already = False
         if isinstance(parent, ast.Attribute) and parent.value is node \
@@ -1517,7 +1528,9 @@ def _range_used_as_ported(module: Any, text: str) -> tuple[int, int] | None:
         if isinstance(node, ast.Name) and node.id in names and isinstance(node.ctx, ast.Load) \
                 and not ported(node):
             return None
-    return lines
+    if lines is None or any(in_isin) and not all(in_isin):
+        return None  # written once as isin's values and once otherwise: not ported
+    return lines, all(in_isin)
 
 
 def _period_texts_code(stamps: Any, kind: str, texts: list[str], ctx: RuleContext) -> Code:
@@ -1563,13 +1576,14 @@ def period_range(call: PandasCall, ctx: RuleContext) -> Value:
     assert call.node is not None
     import libcst as cst
     original = cst.Module([]).code_for_node(call.node)
-    lines = _range_used_as_ported(ctx.python_module, original)
-    if lines is None:
+    used = _range_used_as_ported(ctx.python_module, original)
+    if used is None:
         raise ctx.todo("porter ports a period range as a column of a frame written out "
                        "(pd.DataFrame({\"month\": pd.period_range(...)})), or the sequence of "
                        "a loop that reads each period as its text (f\"{p}\", str(p), print(p)), "
-                       "itself or after astype(str) or strftime(...); here pandas' PeriodIndex "
-                       "is used otherwise")
+                       "itself or after astype(str) or strftime(...), or written as the values "
+                       "of isin; here pandas' PeriodIndex is used otherwise")
+    lines, isin_values = used
     start = call.const("start", 0, None, kinds=(str,))
     end = call.const("end", 1, None, kinds=(str,))
     periods = call.const("periods", 2, None, kinds=(int,))
@@ -1599,8 +1613,13 @@ def period_range(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo("pandas writes these periods otherwise than str() gives them")
     code = _period_texts_code(stamps, kind, texts, ctx)
     from porter.rules.construct import PeriodTexts
-    return Opaque(code, const=PeriodTexts(code, len(texts), lines, texts=tuple(texts),
-                                          period=kind, made=(start, end, periods, freq)))
+    made = PeriodTexts(code, len(texts), lines, texts=tuple(texts), period=kind,
+                       made=(start, end, periods, freq))
+    if isin_values:
+        # s.isin(pd.period_range(...)): rows.isin reads the texts (`made`); where it cannot,
+        # pandas is given its own PeriodIndex, as written
+        return Opaque(Code(original), const=made)
+    return Opaque(code, const=made)
 
 
 @rule("periods.range.astype", "periods.range.strftime")
