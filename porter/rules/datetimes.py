@@ -1644,15 +1644,16 @@ def period_range_text(call: PandasCall, ctx: RuleContext) -> Value:
             reason = ("names of months and days (and AM/PM) are written in the locale of the "
                       "conversion, not of the run")
             ctx.lower(reason, 0.95)
-            # a frame written out around it carries the site (its constant carries none)
-            made = replace(made, made_by=("periods.range.strftime", "period-range-text", 0.95,
-                                          reason))
         if made.size > _MOST_FORMATTED:
             raise ctx.todo(f"over {_MOST_FORMATTED:,} periods formatted")
         with warnings.catch_warnings():
             warnings.simplefilter("ignore")
             texts = tuple(pd.period_range(*made.made).strftime(pattern))
         code = emit.lit(list(texts))
+    # a frame written out around it carries the site (its constant carries none)
+    made = replace(made, made_by=(f"periods.range.{call.name}", "period-range-text",
+                                  ctx.confidence, "; ".join(ctx.reasons) or
+                                  "the texts pandas makes of the periods, made at convert time"))
     # a range bound to a name has its site where it is bound; one written here, here
     lines = (0, 0) if periods.code.text.isidentifier() else made.lines
     return Opaque(code, const=replace(made, code=code, texts=texts, period="str", lines=lines),
