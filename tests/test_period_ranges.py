@@ -184,19 +184,8 @@ def test_strftime_with_month_names_is_lowered_for_the_locale():
      'cal = log[log["p"].isin(pd.period_range("2024-01", periods=3, freq="M"))]\n'
      'for m in pd.period_range("2024-01", periods=3, freq="M"):\n    print(m)',
      "used otherwise"),
-    ('for p in pd.period_range("2024-01", periods=3, freq="M"):\n    print(p.month)',
-     "used otherwise"),
-    ('for p in pd.period_range("2024-01", periods=3, freq="M"):\n    print(p + 1)',
-     "used otherwise"),
-    ('for p in pd.period_range("2024-01", periods=3, freq="M"):\n    print(f"{p!r}")',
-     "used otherwise"),
-    ('for p in pd.period_range("2024-01", periods=3, freq="M"):\n    print(p == "2024-01")',
-     "used otherwise"),
-    ('for p in pd.period_range("2024-01", periods=3, freq="M"):\n    pass\nprint(p.year)',
-     "used otherwise"),
-    ('log["p"] = log["stored"].dt.to_period("M")\n'
-     'for p in pd.period_range("2024-01", periods=3, freq="M"):\n'
-     '    print(len(log[log["p"] == p]))', "used otherwise"),
+    ('rng = pd.period_range("2024-01", periods=3, freq="M")\n'
+     'cal = pd.DataFrame({"p": rng})\nfor p in rng:\n    print(p.month)', "used otherwise"),
     ('cal = pd.DataFrame({"p": pd.period_range("2024-01", periods=3, freq="M")}, index=[1, 2, 3])',
      "used otherwise"),
     ('cal = pd.DataFrame({"p": pd.period_range("2024-01", periods=3, freq="M").astype("int")})',
@@ -214,13 +203,55 @@ def test_period_ranges_porter_does_not_port_stay_todos(body, reason, folder):
 @pytest.mark.parametrize("body", [
     'rng = pd.period_range("2024-01", periods=3, freq="M")\ncal = pd.DataFrame({"p": rng})\n'
     'print(len(rng))\nprint(cal.dtypes)\n',
-    'for p in pd.period_range("2024-01", periods=3, freq="M"):\n    print(p.month, p == "2024-01")\n',
-    'log["p"] = log["stored"].dt.to_period("M")\n'
-    'for p in pd.period_range("2024-01", periods=3, freq="M"):\n'
-    '    print(p, len(log[log["p"] == p]))\n',
+    'rng = pd.period_range("2024-01", periods=3, freq="M")\ncal = pd.DataFrame({"p": rng})\n'
+    'for p in rng:\n    print(p.month)\n',
 ])
 def test_what_stays_pandas_still_runs_as_pandas(body, folder):
     same_text(HEAD + body, folder, DEPOSITS)
+
+
+@pytest.mark.parametrize("freq, to, bounds", [
+    pytest.param("M", "M", '"2023-12", "2024-03"', id="months"),
+    pytest.param("Q", "Q", '"2023Q4", periods=3', id="quarters"),
+    pytest.param("W", "W", '"2024-02-26", periods=3', id="weeks"),
+    pytest.param("D", "D", '"2024-02-28", "2024-03-12"', id="days"),
+    pytest.param("Y", "Y", '"2022", "2026"', id="years"),
+])
+def test_a_loop_over_periods_compared_with_a_period_column(freq, to, bounds, folder):
+    """The loop runs over pandas' own Periods (no data); a column of periods of the same
+    frequency compared with each is compared as text: ==, != (a missing period is unequal),
+    <, >=, the period on either side; other uses of the period stay as written."""
+    result = same_text(HEAD + (
+        f'log["p"] = log["stored"].dt.to_period("{to}")\n'
+        f'for q in pd.period_range({bounds}, freq="{freq}"):\n'
+        '    sub = log[log["p"] == q]\n'
+        '    later = log[q < log["p"]]\n'
+        '    other = log[log["p"] != q]\n'
+        '    upto = log[log["p"] <= q]\n'
+        '    print(q, q.start_time, len(sub), len(later), len(other), len(upto),\n'
+        '          sub["packets"].sum())\n'
+        '    other.to_csv(f"other_{q}.csv".replace("/", "_"), index=False)\n'
+    ), folder, DEPOSITS)
+    assert not result.todos, result.converted_text
+    assert 'pl.col("p") == str(q)' in result.converted_text
+
+
+@pytest.mark.parametrize("use", [
+    # a column of periods of another frequency: pandas compares Periods (never equal), or
+    # reads the text as a period of the column's frequency
+    'log[log["p"] == q]',
+    # a column of text: a Period never equals a text in pandas
+    'log[log["p"].astype(str) == q]',
+    'log[log["vault"] == q]',
+])
+def test_a_loop_period_compared_otherwise_keeps_pandas_answer(use, folder):
+    result = same_text(HEAD + (
+        'log["p"] = log["stored"].dt.to_period("Q")\n'
+        'for q in pd.period_range("2023-12", "2024-03", freq="M"):\n'
+        f'    sub = {use}\n'
+        '    print(q, len(sub))\n'
+    ), folder, DEPOSITS)
+    assert "pd.period_range" in result.converted_text
 
 
 @pytest.mark.parametrize("freq, bounds", [

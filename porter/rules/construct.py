@@ -440,6 +440,7 @@ class PeriodTexts(DateRange):
     texts: tuple[str, ...] = ()
     period: str = "str"
     made: tuple[Any, ...] = ()  # pd.period_range's start, end, periods, freq
+    kept: str | None = None  # pandas' PeriodIndex kept as written ("isin", "loop"), not the texts
     key_prefix: str = "periods.range"  # its astype and strftime (evaluate._prefix)
     # the site of the call that made the texts, when not pd.period_range itself (strftime):
     # (key, rule, confidence, message)

@@ -1456,13 +1456,16 @@ def _read_as_text(module: Any, name: str, parents: dict[int, Any]) -> bool:
     return True
 
 
-def _range_used_as_ported(module: Any, text: str) -> tuple[tuple[int, int], bool] | None:
+def _range_used_as_ported(module: Any, text: str) -> tuple[tuple[int, int], str | None] | None:
     """Whether each `pd.period_range(...)` written as `text` is used where porter ports it:
     a column of a frame written out (`pd.DataFrame({"month": <it>})`), the sequence of a `for`
     loop whose variable is only read as text (f"{p}", str(p), print(p)), or either of these
-    after `.astype(str)` or `.strftime("<format>")`, itself or through a name read only there;
-    or written as the values of `isin` (`s.isin(pd.period_range(...))`). The lines of the
-    first such call, and whether every call is the values of isin; or None."""
+    after `.astype(str)` or `.strftime("<format>")`, itself or through a name read only there.
+    Or where pandas' own PeriodIndex is kept: written as the values of `isin`
+    (`s.isin(pd.period_range(...))`), or the sequence of a loop that reads its periods
+    otherwise (compared with a column of periods: rules/ops.py). The lines of the first such
+    call, and how pandas' PeriodIndex is kept ("isin", "loop"; every use must agree) or None
+    for the texts; or None."""
     import ast
     if not isinstance(module, ast.Module):
         return None
@@ -1472,7 +1475,7 @@ def _range_used_as_ported(module: Any, text: str) -> tuple[tuple[int, int], bool
         return None
     parents = _parents(module)
     columns = _plain_frame_columns(module)
-    in_isin: list[bool] = []
+    kept: list[str | None] = []  # per use: pandas' PeriodIndex kept (how) or the texts
 
     def isin_values(node: Any) -> bool:
         parent = parents.get(id(node))
@@ -1481,9 +1484,16 @@ def _range_used_as_ported(module: Any, text: str) -> tuple[tuple[int, int], bool
             and isinstance(parent.func, ast.Attribute) and parent.func.attr == "isin"
 
     def ported(node: Any) -> bool:
-        in_isin.append(isin_values(node))
-        if in_isin[-1]:
+        parent = parents.get(id(node))
+        if isin_values(node):
+            kept.append("isin")
             return True
+        if isinstance(parent, ast.For) and parent.iter is node \
+                and isinstance(parent.target, ast.Name) \
+                and not _read_as_text(module, parent.target.id, parents):
+            kept.append("loop")  # pandas' Periods, read as pandas reads them
+            return True
+        kept.append(None)
         parent = parents.get(id(node))
         text_already = False
         if isinstance(parent, ast.Attribute) and parent.value is node \
@@ -1528,9 +1538,9 @@ def _range_used_as_ported(module: Any, text: str) -> tuple[tuple[int, int], bool
         if isinstance(node, ast.Name) and node.id in names and isinstance(node.ctx, ast.Load) \
                 and not ported(node):
             return None
-    if lines is None or any(in_isin) and not all(in_isin):
-        return None  # written once as isin's values and once otherwise: not ported
-    return lines, all(in_isin)
+    if lines is None or any(kept) and not all(kept):
+        return None  # pandas' PeriodIndex in one use, the texts in another: not ported
+    return lines, "loop" if "loop" in kept else kept[0] if kept else None
 
 
 def _period_texts_code(stamps: Any, kind: str, texts: list[str], ctx: RuleContext) -> Code:
@@ -1582,8 +1592,9 @@ def period_range(call: PandasCall, ctx: RuleContext) -> Value:
                        "(pd.DataFrame({\"month\": pd.period_range(...)})), or the sequence of "
                        "a loop that reads each period as its text (f\"{p}\", str(p), print(p)), "
                        "itself or after astype(str) or strftime(...), or written as the values "
-                       "of isin; here pandas' PeriodIndex is used otherwise")
-    lines, isin_values = used
+                       "of isin or as a loop's sequence; here pandas' PeriodIndex is used "
+                       "otherwise")
+    lines, pandas_kept = used
     start = call.const("start", 0, None, kinds=(str,))
     end = call.const("end", 1, None, kinds=(str,))
     periods = call.const("periods", 2, None, kinds=(int,))
@@ -1614,10 +1625,16 @@ def period_range(call: PandasCall, ctx: RuleContext) -> Value:
     code = _period_texts_code(stamps, kind, texts, ctx)
     from porter.rules.construct import PeriodTexts
     made = PeriodTexts(code, len(texts), lines, texts=tuple(texts), period=kind,
-                       made=(start, end, periods, freq))
-    if isin_values:
-        # s.isin(pd.period_range(...)): rows.isin reads the texts (`made`); where it cannot,
-        # pandas is given its own PeriodIndex, as written
+                       made=(start, end, periods, freq), kept=pandas_kept)
+    if pandas_kept:
+        # s.isin(pd.period_range(...)): rows.isin reads the texts (`made`); a loop whose
+        # variable is read otherwise than as text keeps pandas' Periods, which a column of
+        # periods is compared with as their text (rules/ops.py); anything porter cannot read
+        # is given pandas' own Periods, as written
+        if pandas_kept == "loop":
+            ctx.handover = True
+            ctx.lower("the loop reads each period otherwise than as its text: it runs over "
+                      "pandas' own Periods (no data: the range is made once)", 1.0)
         return Opaque(Code(original), const=made)
     return Opaque(code, const=made)
 
