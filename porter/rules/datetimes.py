@@ -1570,15 +1570,19 @@ def period_range(call: PandasCall, ctx: RuleContext) -> Value:
     """pd.period_range(start, end / periods, freq) -> the periods' texts, made by pandas at
     convert time: a list written out (or pl.datetime_range(...) formatted, for a long range).
 
-    Handles: D, h, min, W / W-SUN, M, Q / Q-DEC, Y / Y-DEC (pandas' Y and A: pandas 3 refuses
-    "A"), dates as text, two of start / end / periods; used as a column of a frame written
-    out (`pd.DataFrame({"month": pd.period_range(...)})`, dtype period[M], held as text as
+    Handles: D, h, min, W / W-SUN, M, Q / Q-DEC, Y / Y-DEC (pandas 3 refuses "A"), dates as
+    text, two of start / end / periods. Used as a column of a frame written out
+    (`pd.DataFrame({"month": pd.period_range(...)})`, dtype period[M], held as text as
     dt.to_period columns are, so it merges, groups and sorts with them), the sequence of a
     `for` loop whose variable is read as text (f"{p}", str(p), print(p)), or either after
-    astype(str) or strftime("<format>") (str columns, texts made by pandas).
+    astype(str) or strftime("<format>") (str columns, texts made by pandas): the texts.
+    Written as the values of isin (rows.isin: the texts against a column of periods of the
+    same frequency), or the sequence of a loop that reads each period otherwise (a hand-over:
+    pandas' own Periods, which a column of periods of the same frequency is compared with as
+    text, ops._period_operands): the call stays as written for whatever porter cannot read.
     Caveats: other frequencies, a start or end computed at run time, an empty range, name=,
-    and the range used any other way (len(), list(), isin, the periods' attributes or
-    arithmetic in the loop, pd.DataFrame with index=) are TODOs: pandas' PeriodIndex.
+    and the range used any other way (len(), list(), isin of a name, one name made a column
+    and looped over as Periods, pd.DataFrame with index=) are TODOs: pandas' PeriodIndex.
     """
     import warnings
     import pandas as pd
@@ -1589,11 +1593,9 @@ def period_range(call: PandasCall, ctx: RuleContext) -> Value:
     used = _range_used_as_ported(ctx.python_module, original)
     if used is None:
         raise ctx.todo("porter ports a period range as a column of a frame written out "
-                       "(pd.DataFrame({\"month\": pd.period_range(...)})), or the sequence of "
-                       "a loop that reads each period as its text (f\"{p}\", str(p), print(p)), "
+                       "(pd.DataFrame({\"month\": pd.period_range(...)})) or a loop's sequence, "
                        "itself or after astype(str) or strftime(...), or written as the values "
-                       "of isin or as a loop's sequence; here pandas' PeriodIndex is used "
-                       "otherwise")
+                       "of isin; here pandas' PeriodIndex is used otherwise")
     lines, pandas_kept = used
     start = call.const("start", 0, None, kinds=(str,))
     end = call.const("end", 1, None, kinds=(str,))
