@@ -158,7 +158,7 @@ def literal_frame(call: PandasCall, ctx: RuleContext, data: Any) -> Frame:
     overrides: dict[str, Code] = {}
     for name, values in columns.items():
         if isinstance(values, DateRange):  # pl.datetime_range(...): Datetime("us") as in pandas
-            dtypes[name] = "datetime"
+            dtypes[name] = values.kind  # (a period range's text: a String column, see PeriodTexts)
             continue
         kind, polars = column_type(name, values, ctx)
         if kind is not None:
@@ -220,11 +220,14 @@ def data_frame(call: PandasCall, ctx: RuleContext) -> Value:
         # a date range written inside the dict: its site, which the dict's constant does not
         # carry (one bound to a name has its own, where it is bound)
         inline = [v for k, v in data.const.items() if isinstance(v, DateRange)
-                  and _named_range(call, k) is None] if isinstance(data.const, dict) else []
+                  and _named_range(call, k) is None and v.lines != (0, 0)] \
+            if isinstance(data.const, dict) else []
         return frame.with_sites(*(SiteDraft(
-            "pd.date_range", "date-range", "converted", 1.0,
-            "a column of a frame written out: the same timestamps as pandas, checked when "
-            "porter converted the script", *v.lines) for v in inline))
+            v.key, v.key.split(".")[-1].replace("_", "-"), "converted", 1.0,  # date-range
+            f"a column of a frame written out: the same {v.what} as pandas, checked when "
+            "porter converted the script", *v.lines) for v in inline), *(
+            SiteDraft(*v.made_by[:2], "converted", *v.made_by[2:], *v.lines)
+            for v in inline if getattr(v, "made_by", None) is not None))
     if isinstance(data, Opaque) and ".to_pandas()" in data.code.text:
         # values porter already handed to pandas (an earlier run's output): as on that run
         raise ctx.todo("building a frame from another pandas object")
@@ -411,6 +414,47 @@ class DateRange:
 
     def __repr__(self) -> str:
         raise TypeError("a pd.date_range has no literal form")
+
+    @property
+    def kind(self) -> str:
+        """porter's dtype of the column it makes."""
+        return "datetime"
+
+    @property
+    def key(self) -> str:
+        """The mapping key of the call that made it (its site, when inline)."""
+        return "pd.date_range"
+
+    what = "timestamps"
+
+
+@dataclass(frozen=True, repr=False)
+class PeriodTexts(DateRange):
+    """The periods of a `pd.period_range(...)` written out in the script, made by pandas at
+    convert time (rules/datetimes.py, period_range): `texts` are pandas' own text of each
+    period (str(p), astype(str)), `code` a Polars Series or a list of them. `period` is
+    pandas' dtype ("period[M]") while they stand for the periods; "str" once they are text
+    (astype(str), strftime), which pandas makes a str column. A column of periods in a frame
+    holds their text, as dt.to_period() columns do (Periods.aligned_in)."""
+
+    texts: tuple[str, ...] = ()
+    period: str = "str"
+    made: tuple[Any, ...] = ()  # pd.period_range's start, end, periods, freq
+    kept: str | None = None  # pandas' PeriodIndex kept as written ("isin", "loop"), not the texts
+    key_prefix: str = "periods.range"  # its astype and strftime (evaluate._prefix)
+    # the site of the call that made the texts, when not pd.period_range itself (strftime):
+    # (key, rule, confidence, message)
+    made_by: tuple[str, str, float, str] | None = None
+
+    @property
+    def kind(self) -> str:
+        return self.period
+
+    @property
+    def key(self) -> str:
+        return "pd.period_range"
+
+    what = "periods"
 
 
 def _frame_columns_only(module: object, text: str) -> tuple[int, int] | None:

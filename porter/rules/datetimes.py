@@ -1105,12 +1105,15 @@ def to_timedelta(call: PandasCall, ctx: RuleContext) -> Value:
 
     A column of numbers with unit= -> pl.duration(days=pl.col("n")) (weeks= … microseconds=):
     NaN and None become missing, as NaT. A column of text with errors="coerce" ->
-    "[-][D days ]H:MM:SS[.ffffff]" read by str.extract_groups into pl.duration (see
-    _text_timedelta), anything else missing.
+    pandas_duration(texts), defined at the top of the script: "5h", "1h30m", "2 days 3
+    hours", "[-][D days ]H:MM:SS[.ffffff]", "-1 days +23:00:00", ISO 8601 "P1DT2H", read by
+    str.extract_groups into pl.duration as pandas reads them (see _TEXT_DURATION), anything
+    else missing; unit= changes nothing there, as in pandas.
     Caveats: a float column keeps fractions below a microsecond in pandas (nanoseconds), not
-    here (0.95); text in a form pandas reads beyond that one is missing here (0.9); a column
-    of text without errors="coerce" (pandas raises on a text it cannot read), a column without
-    unit= that is not text, a list, a fractional number alone (nanoseconds in pandas) are TODOs.
+    here (0.95); text in a form pandas reads beyond these is missing here (0.9: a number
+    alone, a fraction with a unit, nanoseconds); a column of text without errors="coerce"
+    (pandas raises on a text it cannot read, and on text with unit=), a column without unit=
+    that is not text, a list, a fractional number alone (nanoseconds in pandas) are TODOs.
     """
     ctx.reject_unknown(call, "arg", "unit", "errors", positional=2)
     errors = call.const("errors", None, "raise")
@@ -1133,48 +1136,112 @@ def to_timedelta(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 # pandas reads a duration's text character by character (parse_timedelta_string): spaces,
-# commas and "+" are skipped wherever they are, a "-" is only allowed before everything else,
-# "H:M:S" adds each part (25:00:00 is 1 day 01:00:00, 5:60:00 is 6:00:00), "N days" (day, d,
-# D, any case) before it adds days, and the "-" then makes only the days negative
-# ("-1 days +02:00:00" is -22 hours); up to six decimals of a second are microseconds. The
-# digit counts keep every value far below pandas' limit (±106751 days, in nanoseconds)
-# [0-9], not \d: pandas reads ASCII digits only, Polars' \d matches every script's digits
-_TEXT_DURATION = ("^(?:(?<days>-?[0-9]{1,4})(?i:days?|d)|(?<sign>-?))"
-                  "(?<hours>[0-9]{1,6}):(?<minutes>[0-9]{1,6}):(?<seconds>[0-9]{1,8})"
-                  "(?:[.](?<fraction>[0-9]{1,6}))?$")
+# commas and "+" are skipped wherever they are, a "-" is only allowed before everything else;
+# "<number><unit>" parts add up ("1h30m", "2 days 3 hours", "5 hours 30 minutes"), each unit
+# spelt as pandas spells it in any case (but "M", a month, is refused); "H:M:S" after them
+# adds each part (25:00:00 is 1 day 01:00:00, 5:60:00 is 6:00:00); the "-" makes every unit
+# part negative, and the clock too only when no unit part came before it ("-1 days
+# +02:00:00" is -22 hours, "-5:00:00" is -5 hours); up to six decimals of a second are
+# microseconds. porter reads the unit parts in the order weeks, days, hours, minutes,
+# seconds, milliseconds, microseconds, each once, as whole numbers (pandas reads a fraction
+# through a float, "1.1h" is 1:05:59.999999999); its digit counts keep every value far below
+# pandas' limit (±106751 days, in nanoseconds).
+# [0-9], not \d: pandas reads ASCII digits only, Polars' \d matches every script's digits;
+# each letter as [xX], not (?i): Polars' case folding would take "ſ" for "s" and "K" for "k"
+
+
+def _spelt(*words: str) -> str:
+    """The unit words, each letter in either case ("m" alone: "M" is a month to pandas)."""
+    return "|".join("".join(f"[{c}{c.upper()}]" if c.isalpha() and c.isascii() else c
+                            for c in w) if w != "m" else "m" for w in words)
+
+
+_UNIT_PARTS = (  # (pl.duration keyword, digits, pandas' spellings, longest first)
+    ("weeks", 3, ("w",)),
+    ("days", 4, ("days", "day", "d")),
+    ("hours", 5, ("hours", "hour", "hr", "h")),
+    ("minutes", 7, ("minutes", "minute", "min", "m")),
+    ("seconds", 9, ("seconds", "second", "sec", "s")),
+    ("milliseconds", 9, ("milliseconds", "millisecond", "millis", "milli", "ms")),
+    ("microseconds", 9, ("microseconds", "microsecond", "micros", "micro", "us", "µs")),
+)
+_TEXT_DURATION = ("^(?<sign>-?)" + "".join(
+    f"(?:(?<{k}>[0-9]{{1,{n}}})(?:{_spelt(*words)}))?" for k, n, words in _UNIT_PARTS)
+    + "(?:(?<clock_h>[0-9]{1,6}):(?<clock_m>[0-9]{1,6}):(?<clock_s>[0-9]{1,8})"
+    "(?:[.](?<fraction>[0-9]{1,6}))?)?$")
+# ISO 8601 as pandas reads it (parse_iso_format_string), on the text as written: "P1DT2H",
+# "PT2H30M", "-P1D", "P0DT0H0M1.5S", up to six decimals of a second. pandas reads other
+# forms its own way ("PT1.5H" is 5 hours and 1 second, "P1M" a minute): missing here
+_ISO_DURATION = ("^(?<sign>-?)P(?:(?<days>[0-9]{1,4})D)?(?:T(?:(?<hours>[0-9]{1,2})H)?"
+                 "(?:(?<minutes>[0-9]{1,2})M)?(?:(?<seconds>[0-9]{1,5})"
+                 "(?:[.](?<fraction>[0-9]{1,6}))?S)?)?$")
+
+
+# A function, defined once at the top of a converted script, that reads durations' text as
+# pandas does (translate/imports.py)
+DURATION_FUNCTION = "pandas_duration"
+_PART_NAMES = ", ".join(f'"{k}"' for k, _, _ in _UNIT_PARTS)
+DURATION_DEFINITION = f'''\
+def pandas_duration(text):
+    """Durations written as text, read as pandas' to_timedelta(text, errors="coerce") reads
+    "5h", "1h30m", "2 days 3 hours", "1 day 02:00:00", "-1 days +23:00:00", "00:30:00" and
+    ISO 8601 "P1DT2H"; any other text is missing."""
+    iso = text.str.extract_groups({_ISO_DURATION!r})
+    # spaces, commas and "+" are skipped wherever they are, as pandas skips them
+    parts = text.str.replace_all("[ ,+]", "").str.extract_groups(
+        {_TEXT_DURATION!r}
+    )
+
+    def whole(t, name):
+        return t.struct.field(name).cast(pl.Int64).fill_null(0)
+
+    def read(t, *names):
+        return pl.any_horizontal([t.struct.field(name).is_not_null() for name in names])
+
+    def sign(t, where):
+        return pl.when((t.struct.field("sign") == "-") & where).then(-1).otherwise(1)
+
+    def clock(t, **more):
+        micro = t.struct.field("fraction").str.pad_end(6, "0").cast(pl.Int64).fill_null(0)
+        return pl.duration(**more, microseconds=micro)
+
+    units = ({_PART_NAMES})
+    written = read(parts, *units)
+    # "-" makes the unit parts negative, and the clock after them only when there are none
+    from_text = pl.when(written | read(parts, "clock_h")).then(
+        pl.duration(**{{unit: whole(parts, unit) for unit in units}}) * sign(parts, pl.lit(True))
+        + clock(parts, hours=whole(parts, "clock_h"), minutes=whole(parts, "clock_m"),
+                seconds=whole(parts, "clock_s")) * sign(parts, ~written)
+    )
+    iso_units = ("days", "hours", "minutes", "seconds")
+    from_iso = pl.when(read(iso, *iso_units)).then(
+        clock(iso, **{{unit: whole(iso, unit) for unit in iso_units}}) * sign(iso, pl.lit(True))
+    )
+    return pl.coalesce(from_iso, from_text).name.keep()  # the text's name, as pandas keeps it
+'''
 
 
 def _text_timedelta(call: PandasCall, column: Column, errors: str, ctx: RuleContext) -> Column:
-    """pd.to_timedelta(texts, errors="coerce") -> the parts of "[-][D days ]H:MM:SS[.ffffff]"
-    (str.extract_groups, spaces, commas and "+" taken out first as pandas skips them) added
-    up by pl.duration; a text of any other form, "", "NaT" and a missing value are missing."""
-    if call.has("unit", 1):
-        raise ctx.todo("a column of text with unit= (pandas refuses it)")
+    """pd.to_timedelta(texts, errors="coerce") -> pandas_duration(texts): the parts pandas
+    reads (see _TEXT_DURATION and _ISO_DURATION), by str.extract_groups, added up by
+    pl.duration; a text of any other form, "", "NaT" and a missing value are missing."""
     if errors != "coerce":
         raise ctx.todo("a column of text without errors='coerce': pandas raises on a text it "
-                       "cannot read (write errors='coerce' to have it missing)")
-    ctx.lower("text in another form pandas reads is missing here: units (\"5h\", \"2 days\" "
-              "without a time, \"1 hours 02:00:00\"), ISO 8601 (\"P1D\"), a number alone "
-              "(nanoseconds), more than six decimals (nanoseconds: the whole column's unit), "
-              "more than 4 digits of days or 6 of hours; a column with no duration at all is "
-              "timedelta64[s] in pandas, Duration(us) here", 0.9)
-    def field(name: str) -> Code:
-        return emit.atom("t").attr("struct").method("field", name)
-    whole = lambda name: field(name).method("cast", emit.atom("pl.Int64"))  # noqa: E731
-    micro = field("fraction").attr("str").method("pad_end", 6, "0") \
-        .method("cast", emit.atom("pl.Int64")).method("fill_null", 0)
-    days = emit.pl("duration", days=whole("days").method("fill_null", 0))
-    sign = emit.when(emit.binop(field("sign"), "==", "-"), -1, 1)
-    # laid out over lines (a lambda is one expression, which the chain layout keeps whole)
-    parts = ",\n".join(f"        {k}={v.text}" for k, v in (
-        ("hours", whole("hours")), ("minutes", whole("minutes")), ("seconds", whole("seconds")),
-        ("microseconds", micro)))
-    body = (f"lambda t: (\n    {days.text}\n    + pl.duration(\n{parts},\n    )\n"
-            f"    * {sign.text}\n)")
-    code = column.code.attr("str").method("replace_all", "[ ,+]", "") \
-        .attr("str").method("extract_groups", _TEXT_DURATION) \
-        .method("pipe", Code(body))
-    return derived_column(column, code, dtype="duration", name=column.name)
+                       "cannot read, and on any text with unit= (write errors='coerce' to have "
+                       "it missing)")
+    if call.has("unit", 1):
+        # with errors="coerce" pandas reads each text as without unit= ("42" is 42
+        # nanoseconds, "5h" five hours); it raises on a unit it does not know, or M and Y
+        _unit(call.const("unit", 1, None), ctx)
+    ctx.lower("text in another form pandas reads is missing here: a number alone "
+              "(nanoseconds), a fraction with a unit (\"1.5h\": pandas reads it through a "
+              "float), nanoseconds or more than six decimals (the whole column's unit becomes "
+              "nanoseconds), units out of order or repeated (\"30m1h\"), ISO 8601 weeks, "
+              "fractions of other than seconds or a sign inside (\"P1W\", \"P-1D\"), more "
+              "digits than porter reads (4 of days, 5 of hours, 6 of clock hours); a column "
+              "with no duration at all is timedelta64[s] in pandas, Duration(us) here", 0.9)
+    return derived_column(column, emit.call(DURATION_FUNCTION, column.code), dtype="duration",
+                          name=column.name)
 
 
 _DURATION_KEYWORDS = {unit: keyword for keyword, unit in _KEYWORDS.items()}
@@ -1335,3 +1402,278 @@ def total_seconds(call: PandasCall, ctx: RuleContext) -> Value:
                                                                     million)))
     code = _dt(column).method("total_microseconds").method("pipe", Code(f"lambda us: {body.text}"))
     return _result(column, code, "float")
+
+
+# pd.period_range ------------------------------------------------------------------------------
+
+# pandas' dtype of a range's periods -> the frequency porter writes their text for (_PERIODS)
+_RANGE_KINDS = {"period[D]": "D", "period[h]": "h", "period[min]": "min", "period[W-SUN]": "W",
+                "period[M]": "M", "period[Q-DEC]": "Q", "period[Y-DEC]": "Y"}
+_MOST_PERIODS = 100_000  # a longer range is made by pandas at run time (a TODO), not here
+_WRITTEN_OUT = 24  # up to this many periods the texts are written out as a list
+_MOST_FORMATTED = 1_000  # strftime's texts are always written out: up to this many
+# strftime directives whose text follows the locale (the month's name, AM/PM)
+_LOCALE_DIRECTIVES = re.compile(r"%[aAbBpcxX]")
+
+
+def _parents(module: Any) -> dict[int, Any]:
+    import ast
+    return {id(child): node for node in ast.walk(module) for child in ast.iter_child_nodes(node)}
+
+
+def _plain_frame_columns(module: Any) -> set[int]:
+    """The ids of the dict values of `pd.DataFrame({...})` calls given nothing but the data and
+    columns= (as construct._frame_columns_only reads them)."""
+    import ast
+    columns: set[int] = set()
+    for node in ast.walk(module):
+        if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
+                and node.func.attr == "DataFrame":
+            data = node.args[0] if node.args else next(
+                (k.value for k in node.keywords if k.arg == "data"), None)
+            plain = len(node.args) <= 2 and all(k.arg in ("data", "columns") for k in node.keywords)
+            if isinstance(data, ast.Dict) and plain:
+                columns.update(id(v) for v in data.values)
+    return columns
+
+
+def _read_as_text(module: Any, name: str, parents: dict[int, Any]) -> bool:
+    """Whether every read of `name` in the script gives it as its text: f"{p}" (or {p!s}),
+    str(p) or print(..., p, ...), where a Period and the text of it give the same."""
+    import ast
+    for node in ast.walk(module):
+        if not (isinstance(node, ast.Name) and node.id == name and isinstance(node.ctx, ast.Load)):
+            continue
+        parent = parents.get(id(node))
+        if isinstance(parent, ast.FormattedValue) and parent.format_spec is None \
+                and parent.conversion in (-1, ord("s")):
+            continue
+        if isinstance(parent, ast.Call) and isinstance(parent.func, ast.Name) \
+                and node in parent.args and not parent.keywords \
+                and (parent.func.id == "print" or parent.func.id == "str" and len(parent.args) == 1):
+            continue
+        return False
+    return True
+
+
+def _range_used_as_ported(module: Any, text: str) -> tuple[tuple[int, int], str | None] | None:
+    """Whether each `pd.period_range(...)` written as `text` is used where porter ports it:
+    a column of a frame written out (`pd.DataFrame({"month": <it>})`), the sequence of a `for`
+    loop whose variable is only read as text (f"{p}", str(p), print(p)), or either of these
+    after `.astype(str)` or `.strftime("<format>")`, itself or through a name read only there.
+    Or where pandas' own PeriodIndex is kept: written as the values of `isin`
+    (`s.isin(pd.period_range(...))`), or the sequence of a loop that reads its periods
+    otherwise (compared with a column of periods: rules/ops.py). The lines of the first such
+    call, and how pandas' PeriodIndex is kept ("isin", "loop"; every use must agree) or None
+    for the texts; or None."""
+    import ast
+    if not isinstance(module, ast.Module):
+        return None
+    try:
+        wanted = ast.unparse(ast.parse(text.strip(), mode="eval").body)
+    except SyntaxError:
+        return None
+    parents = _parents(module)
+    columns = _plain_frame_columns(module)
+    kept: list[str | None] = []  # per use: pandas' PeriodIndex kept (how) or the texts
+
+    def isin_values(node: Any) -> bool:
+        parent = parents.get(id(node))
+        return isinstance(node, ast.Call) and isinstance(parent, ast.Call) \
+            and len(parent.args) == 1 and parent.args[0] is node and not parent.keywords \
+            and isinstance(parent.func, ast.Attribute) and parent.func.attr == "isin"
+
+    def ported(node: Any) -> bool:
+        parent = parents.get(id(node))
+        if isin_values(node):
+            kept.append("isin")
+            return True
+        if isinstance(parent, ast.For) and parent.iter is node \
+                and isinstance(parent.target, ast.Name) \
+                and not _read_as_text(module, parent.target.id, parents):
+            kept.append("loop")  # pandas' Periods, read as pandas reads them
+            return True
+        kept.append(None)
+        parent = parents.get(id(node))
+        text_already = False
+        if isinstance(parent, ast.Attribute) and parent.value is node \
+                and parent.attr in ("astype", "strftime"):
+            call = parents.get(id(parent))
+            if not (isinstance(call, ast.Call) and call.func is parent and len(call.args) == 1
+                    and not call.keywords):
+                return False
+            arg = call.args[0]
+            if parent.attr == "astype" and not (
+                    isinstance(arg, ast.Name) and arg.id == "str"
+                    or isinstance(arg, ast.Constant) and arg.value == "str"):
+                return False
+            if parent.attr == "strftime" and not (isinstance(arg, ast.Constant)
+                                                  and isinstance(arg.value, str)):
+                return False
+            node, parent, text_already = call, parents.get(id(call)), True
+        if id(node) in columns:
+            return True
+        if isinstance(parent, ast.For) and parent.iter is node:
+            # text: any use of the variable reads a str in both
+            return isinstance(parent.target, ast.Name) and (
+                text_already or _read_as_text(module, parent.target.id, parents))
+        return False
+
+    names: set[str] = set()
+    for node in ast.walk(module):
+        if isinstance(node, ast.Assign) and len(node.targets) == 1 \
+                and isinstance(node.targets[0], ast.Name) and ast.unparse(node.value) == wanted:
+            names.add(node.targets[0].id)
+    lines: tuple[int, int] | None = None
+    for node in ast.walk(module):
+        if isinstance(node, ast.Call) and ast.unparse(node) == wanted:
+            if lines is None:
+                lines = (node.lineno, node.end_lineno or node.lineno)
+            parent = parents.get(id(node))
+            bound = isinstance(parent, ast.Assign) and parent.value is node \
+                and len(parent.targets) == 1 and isinstance(parent.targets[0], ast.Name) \
+                and parent.targets[0].id in names
+            if not bound and not ported(node):
+                return None
+        if isinstance(node, ast.Name) and node.id in names and isinstance(node.ctx, ast.Load) \
+                and not ported(node):
+            return None
+    if lines is None or any(kept) and not all(kept):
+        return None  # pandas' PeriodIndex in one use, the texts in another: not ported
+    return lines, "loop" if "loop" in kept else kept[0] if kept else None
+
+
+def _period_texts_code(stamps: Any, kind: str, texts: list[str], ctx: RuleContext) -> Code:
+    """The periods' texts as Polars makes them: a list written out when short, else the text
+    of each period's first instant (as dt.to_period's columns are written), checked at
+    convert time to be pandas' texts."""
+    if len(texts) <= _WRITTEN_OUT:
+        return emit.lit(list(texts))
+    import polars as pl
+    from porter.rules.construct import _datetime_code
+    freq = _RANGE_KINDS[kind]
+    every, text_of = _PERIODS[freq]
+    first, last = stamps[0].start_time, stamps[-1].start_time
+    made = emit.pl("datetime_range", _datetime_code(first), _datetime_code(last), every)
+    code = emit.pl("select", text_of(made)).method("to_series")
+    try:
+        checked = eval(code.text, {"pl": pl}).to_list()  # noqa: S307 (porter's own code)
+    except Exception:  # noqa: BLE001 (Polars refuses it: not ported)
+        checked = None
+    if checked != list(texts):
+        raise ctx.todo("Polars' texts of the periods differ from pandas' here")  # checked
+    return code
+
+
+@rule("pd.period_range")
+def period_range(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.period_range(start, end / periods, freq) -> the periods' texts, made by pandas at
+    convert time: a list written out (or pl.datetime_range(...) formatted, for a long range).
+
+    Handles: D, h, min, W / W-SUN, M, Q / Q-DEC, Y / Y-DEC (pandas 3 refuses "A"), dates as
+    text, two of start / end / periods. Used as a column of a frame written out
+    (`pd.DataFrame({"month": pd.period_range(...)})`, dtype period[M], held as text as
+    dt.to_period columns are, so it merges, groups and sorts with them), the sequence of a
+    `for` loop whose variable is read as text (f"{p}", str(p), print(p)), or either after
+    astype(str) or strftime("<format>") (str columns, texts made by pandas): the texts.
+    Written as the values of isin (rows.isin: the texts against a column of periods of the
+    same frequency), or the sequence of a loop that reads each period otherwise (a hand-over:
+    pandas' own Periods, which a column of periods of the same frequency is compared with as
+    text, ops._period_operands): the call stays as written for whatever porter cannot read.
+    Caveats: other frequencies, a start or end computed at run time, an empty range, name=,
+    and the range used any other way (len(), list(), isin of a name, one name made a column
+    and looped over as Periods, pd.DataFrame with index=) are TODOs: pandas' PeriodIndex.
+    """
+    import warnings
+    import pandas as pd
+    ctx.reject_unknown(call, "start", "end", "periods", "freq", positional=4)
+    assert call.node is not None
+    import libcst as cst
+    original = cst.Module([]).code_for_node(call.node)
+    used = _range_used_as_ported(ctx.python_module, original)
+    if used is None:
+        raise ctx.todo("porter ports a period range as a column of a frame written out "
+                       "(pd.DataFrame({\"month\": pd.period_range(...)})) or a loop's sequence, "
+                       "itself or after astype(str) or strftime(...), or written as the values "
+                       "of isin; here pandas' PeriodIndex is used otherwise")
+    lines, pandas_kept = used
+    start = call.const("start", 0, None, kinds=(str,))
+    end = call.const("end", 1, None, kinds=(str,))
+    periods = call.const("periods", 2, None, kinds=(int,))
+    freq = call.const("freq", 3, None, kinds=(str,))
+    if isinstance(periods, bool) or (start, end, periods).count(None) != 1:
+        raise ctx.todo("exactly two of start, end and periods are ported")
+    if periods is not None and periods > _MOST_PERIODS:
+        raise ctx.todo(f"over {_MOST_PERIODS:,} periods")
+    try:
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            stamps = pd.period_range(start, end, periods, freq)
+    except (ValueError, TypeError, OverflowError) as error:
+        raise ctx.todo(f"pandas raises here ({error})") from None
+    kind = str(stamps.dtype)
+    if kind not in _RANGE_KINDS:
+        raise ctx.todo(f"periods of {kind}: porter ports {', '.join(_RANGE_KINDS)}")
+    if len(stamps) == 0:
+        raise ctx.todo("an empty range (pandas' period dtype, no value to type it by here)")
+    if len(stamps) > _MOST_PERIODS:
+        raise ctx.todo(f"over {_MOST_PERIODS:,} periods")
+    if stamps[0].start_time.year < 1000 or stamps[-1].end_time.year > 9999:
+        # the texts order as the periods do only with years of four digits
+        raise ctx.todo("years outside 1000-9999")
+    texts = [str(p) for p in stamps]
+    if list(stamps.astype(str)) != texts:
+        raise ctx.todo("pandas writes these periods otherwise than str() gives them")
+    code = _period_texts_code(stamps, kind, texts, ctx)
+    from porter.rules.construct import PeriodTexts
+    made = PeriodTexts(code, len(texts), lines, texts=tuple(texts), period=kind,
+                       made=(start, end, periods, freq), kept=pandas_kept)
+    if pandas_kept:
+        # s.isin(pd.period_range(...)): rows.isin reads the texts (`made`); a loop whose
+        # variable is read otherwise than as text keeps pandas' Periods, which a column of
+        # periods is compared with as their text (rules/ops.py); anything porter cannot read
+        # is given pandas' own Periods, as written
+        if pandas_kept == "loop":
+            ctx.handover = True
+            ctx.lower("the loop reads each period otherwise than as its text: it runs over "
+                      "pandas' own Periods (no data: the range is made once)", 1.0)
+        return Opaque(Code(original), const=made)
+    return Opaque(code, const=made)
+
+
+@rule("periods.range.astype", "periods.range.strftime")
+def period_range_text(call: PandasCall, ctx: RuleContext) -> Value:
+    """period_range(...).astype(str) / .strftime(format) -> the texts pandas makes of the
+    periods, at convert time (a str column in a frame written out, str values in a loop)."""
+    import warnings
+    import pandas as pd
+    from porter.rules.construct import PeriodTexts
+    periods = call.receiver
+    assert isinstance(periods, Opaque) and isinstance(periods.const, PeriodTexts)
+    ctx.reject_unknown(call, "dtype" if call.name == "astype" else "date_format", positional=1)
+    made = periods.const
+    if call.name == "astype":
+        target = call.arg("dtype", 0)
+        if not (isinstance(target, Opaque) and target.code.text in ("str", '"str"', "'str'")):
+            raise ctx.todo("periods cast to something other than str")
+        code, texts = periods.code, made.texts  # the same texts: the range's own value
+    else:
+        pattern = call.const("date_format", 0, kinds=(str,))
+        if _LOCALE_DIRECTIVES.search(pattern):
+            reason = ("names of months and days (and AM/PM) are written in the locale of the "
+                      "conversion, not of the run")
+            ctx.lower(reason, 0.95)
+        if made.size > _MOST_FORMATTED:
+            raise ctx.todo(f"over {_MOST_FORMATTED:,} periods formatted")
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            texts = tuple(pd.period_range(*made.made).strftime(pattern))
+        code = emit.lit(list(texts))
+    # a frame written out around it carries the site (its constant carries none)
+    made = replace(made, made_by=(f"periods.range.{call.name}", "period-range-text",
+                                  ctx.confidence, "; ".join(ctx.reasons) or
+                                  "the texts pandas makes of the periods, made at convert time"))
+    # a range bound to a name has its site where it is bound; one written here, here
+    lines = (0, 0) if periods.code.text.isidentifier() else made.lines
+    return Opaque(code, const=replace(made, code=code, texts=texts, period="str", lines=lines),
+                  sites=periods.sites)

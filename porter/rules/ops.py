@@ -37,6 +37,12 @@ def base_column(*values: Value) -> Column:
         # dt.to_period() kept in a frame as the periods' text: pandas compares and adds periods
         # ("2024-3" == 2024-03, month + 1 is the next month), not text
         raise Unsupported("a column of periods, held as their text: operators on it stay pandas")
+    if any(isinstance(v, Opaque) and v.pytype is not None and v.pytype.startswith("period[")
+           for v in values):
+        # a Period of a loop over pd.period_range, other than compared with a column of its
+        # periods (_period_operands): pandas compares and adds Periods, not text
+        raise Unsupported("a pandas Period (a loop over pd.period_range): operators on it "
+                          "stay pandas")
     columns = [v for v in values if isinstance(v, Column)]
     if not columns:
         raise Unsupported("no column among the operands")
@@ -483,6 +489,7 @@ def compare(call: PandasCall, ctx: RuleContext) -> Value:
     """
     left, right = call.receiver, call.args[0]
     assert left is not None
+    left, right = _period_operands(left, right)
     column = base_column(left, right)
     frame = column.frame
     left, right = _as_datetime(left, column), _as_datetime(right, column)
@@ -511,6 +518,28 @@ def compare(call: PandasCall, ctx: RuleContext) -> Value:
                   "holds datetimes", 0.7)
     code = emit.binop(lcode, call.name, rcode)
     return derived_column(column, code, dtype="bool", null_is_false=True, others=[left, right])
+
+
+def _period_operands(left: Value, right: Value) -> tuple[Value, Value]:
+    """A column of periods (dt.to_period, held as their text) compared with a Period of the
+    same frequency from a loop over pd.period_range (its pytype is the periods' dtype name):
+    the column as text and the Period as str(p), which pandas writes the same way. Texts of
+    one frequency with years of four digits (period_range checks them) order as the periods
+    do, and a missing period compares as missing text does (False, True for !=). Anything
+    else stays as it was (a column of periods stays pandas: base_column)."""
+    def kind(value: Value) -> str | None:
+        if isinstance(value, Column) and value.dtype is not None \
+                and value.dtype.startswith("period[") and not value.element:
+            return value.dtype
+        return None
+    for column, period in ((left, right), (right, left)):
+        if kind(column) is not None and isinstance(period, Opaque) \
+                and period.pytype == kind(column):
+            assert isinstance(column, Column)
+            as_text = replace(column, dtype="str")
+            text = Opaque(emit.call("str", period.code), pytype="str")
+            return (as_text, text) if column is left else (text, as_text)
+    return left, right
 
 
 _NOT_TEXT = ("int", "float", "bool")

@@ -378,6 +378,9 @@ def isin(call: PandasCall, ctx: RuleContext) -> Value:
     column = call.receiver
     assert isinstance(column, Column)
     values = call.arg("values", 0)
+    if column.dtype is not None and column.dtype.startswith("period[") \
+            or isinstance(values, Opaque) and getattr(values.const, "period", "").startswith("period["):
+        return _periods_isin(column, values, ctx)
     if isinstance(values, Opaque) and isinstance(values.const, (list, tuple, set)):
         items = _comparable(list(values.const), column.dtype, ctx)
         has_missing = _matches_missing(items, column.dtype, ctx)
@@ -414,6 +417,21 @@ def isin(call: PandasCall, ctx: RuleContext) -> Value:
         return derived_column(column, code, dtype="bool", others=[values] if values.frame.rows
                               == column.frame.rows else [])
     raise Unsupported("isin with a frame or a value computed by pandas")
+
+
+def _periods_isin(column: Column, values: Value, ctx: RuleContext) -> Column:
+    """periods.isin(pd.period_range(...)) -> the periods' text .is_in(the range's texts).
+
+    A column of periods (dt.to_period, held as their text) matches the periods of a range of
+    the same frequency, whose texts are pandas' own; a missing period is in no range (False).
+    Anything else stays pandas: a period is never equal to a text (`isin(["2024-01"])` is
+    False everywhere in pandas), nor to a period of another frequency."""
+    period = getattr(values.const, "period", None) if isinstance(values, Opaque) else None
+    if column.dtype is None or period is None or column.dtype != period:
+        raise Unsupported("isin on periods, or with periods, other than a column of periods "
+                          "(dt.to_period) and pd.period_range(...) of the same frequency")
+    code = column.code.method("is_in", values.const.code)
+    return derived_column(column, code, dtype="bool", null_is_false=True)
 
 
 def _comparable(items: list[Any], dtype: str | None, ctx: RuleContext) -> list[Any]:

@@ -502,6 +502,13 @@ class _Walker:
                 and iter_value.is_const and isinstance(stmt.target, cst.Name) else ()
             for name in _target_names(stmt.target):
                 loop_env[name] = Opaque(emit.atom(name), pytype=pytype, choices=names)
+            ranged = iter_value.const if isinstance(iter_value, Opaque) and iter_value.is_const \
+                else None
+            if getattr(ranged, "kept", None) == "loop" and isinstance(stmt.target, cst.Name):
+                # pandas' own Periods of pd.period_range (rules/datetimes.py): their dtype
+                # name, which a column of periods of that kind is compared with (rules/ops.py)
+                loop_env[stmt.target.value] = Opaque(emit.atom(stmt.target.value),
+                                                     pytype=ranged.period)
             if isinstance(iter_value, Scalar) and iter_value.items == "text" \
                     and isinstance(stmt.target, cst.Name):
                 # pandas' text, nan for a missing one: null again inside Polars expressions

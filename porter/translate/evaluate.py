@@ -462,6 +462,10 @@ class Evaluator:
             # parts.name: a named group's column (anything else is pandas' DataFrame API)
             call = PandasCall(receiver, "getitem", (Opaque(emit.lit(name), const=name),), node=node)
             return self.dispatch("series.str.expand.getitem", call, node)
+        if isinstance(receiver, Opaque) and receiver.is_const \
+                and getattr(receiver.const, "key_prefix", None) and name in ("astype", "strftime"):
+            # pd.period_range(...).astype(str) (rules/datetimes.py, period_range_text)
+            return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
         return self.generic(node)
 
     def note_labels_read(self, frame: Frame) -> None:
@@ -1415,6 +1419,8 @@ _SERIES_GROUPBY_ONLY = frozenset({"dtype", "is_monotonic_decreasing", "is_monoto
 def _prefix(value: Value) -> str:
     if getattr(value, "key_prefix", None):  # a window within groups (rules/windows.py)
         return value.key_prefix  # type: ignore[attr-defined]
+    if isinstance(value, Opaque) and value.is_const and getattr(value.const, "key_prefix", None):
+        return value.const.key_prefix  # the periods of pd.period_range (rules/construct.py)
     if isinstance(value, Frame):
         return "frame"
     if isinstance(value, Column):

@@ -124,7 +124,9 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (WHITESPACE_CONSTANT, WHITESPACE_DEFINITION)):
         if constant in used and not _defines(module, constant):
             body = _insert_after_imports(body, _constant(definition))
+    from porter.rules.datetimes import DURATION_DEFINITION, DURATION_FUNCTION
     for function, definition in ((DIVIDE_FUNCTION, DIVIDE_DEFINITION),
+                                 (DURATION_FUNCTION, DURATION_DEFINITION),
                                  (QUANTILE_FUNCTION, QUANTILE_DEFINITION),
                                  (UNSTACKED_FUNCTION, UNSTACKED_DEFINITION),
                                  (CATEGORY_COUNTS_FUNCTION, CATEGORY_COUNTS_DEFINITION),
