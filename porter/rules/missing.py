@@ -16,7 +16,7 @@ from porter.rules import rule
 from porter.rules.totals import column_totals
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, column_of, derive,
-    derived_column,
+    derived_column, values_fixed,
 )
 from porter.translate.values import (
     NOT_NULLABLE, Column, Frame, Opaque, PandasValue, Scalar, Value, fresh_token,
@@ -186,6 +186,7 @@ def series_dropna(call: PandasCall, ctx: RuleContext) -> Value:
     """s.dropna() -> the column of frame.filter(s.is_not_null())."""
     column = call.receiver
     assert isinstance(column, Column)
+    column = values_fixed(column)  # a rank or running sum keeps the values of all rows
     frame = column.frame
     filtered = derive(frame, frame.code.method("filter", column.code.method("is_not_null")), same_rows=False)
     return Column(column.code, frame=filtered, name=column.name, dtype=column.dtype,

@@ -12,6 +12,7 @@ from porter.rules.elementwise import keys_of_column_type
 from porter.rules import rule
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, column_of, derive, derived_column,
+    values_fixed,
 )
 from porter.translate.values import Column, Frame, Opaque, Value, fresh_token
 
@@ -243,6 +244,7 @@ def series_nlargest(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("keep other than first")
     kwargs: dict[str, object] = {"descending": True} if call.name == "nlargest" else {}
     kwargs |= {"nulls_last": True, "maintain_order": True}
+    column = values_fixed(column)  # a rank or running sum keeps the values of all rows
     frame = column.frame
     top = derive(frame, frame.code.method("sort", column.code, **kwargs).method("head", n), same_rows=False)
     return Column(column.code, frame=top, name=column.name, dtype=column.dtype, refs=column.refs,

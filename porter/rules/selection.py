@@ -15,7 +15,7 @@ from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_names, column_of, derive, nullable_columns,
-    select_columns,
+    select_columns, values_fixed,
 )
 from porter.translate.handover import series_frame, to_pandas
 from porter.translate.values import (
@@ -384,8 +384,10 @@ def frame_index(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: a resample, a pivot or an unstack by time; the DatetimeIndex methods (strftime,
     year, month_name …) are Series.dt's: idx.strftime(fmt) is dt.to_string(fmt).
 
-    Any other index of one key (a groupby's text keys) is that key column.
-    Caveats: row numbers and several keys are TODOs: the index is not data in Polars."""
+    Any other index of one key (a groupby's text keys) is that key column; the labels 0..n-1
+    of a frame not filtered or sorted are its row numbers (pl.int_range(pl.len())).
+    Caveats: labels after a filter or sort, and several keys, are TODOs: the index is not data
+    in Polars."""
     frame = call.receiver
     assert isinstance(frame, Frame)
     return _index_of(frame, ctx)
@@ -405,7 +407,11 @@ def series_index(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 def _index_of(frame: Frame, ctx: RuleContext) -> Value:
-    """The labels of a table indexed by one key column, as that column."""
+    """The labels of a table indexed by one key column, as that column; of a frame still
+    labelled 0..n-1, its row numbers (pl.int_range: pandas' RangeIndex)."""
+    if not frame.index and frame.labels_intact:
+        numbers = emit.pl("int_range", emit.pl("len"), dtype=emit.atom("pl.Int64"))
+        return Column(numbers, frame=frame, name=None, dtype="int")
     if len(frame.index) != 1:
         raise ctx.todo("the index is not data in Polars: keep the labels in a column "
                        "(with_row_index) and use it")
@@ -458,6 +464,7 @@ def series_head(call: PandasCall, ctx: RuleContext) -> Value:
     n = call.const("n", 0, 5)
     if not isinstance(n, int) or n < 0:
         raise Unsupported("a negative or computed count needs the frame's length")
+    column = values_fixed(column)  # a rank or running sum keeps the values of all rows
     frame = column.frame
     rows = derive(frame, frame.code.method(call.name, n), same_rows=False,
                   labels_intact=frame.labels_intact and call.name == "head")
@@ -748,8 +755,10 @@ def series_getitem(call: PandasCall, ctx: RuleContext) -> Value:
         return series_label(call, ctx)
     if not isinstance(key, Column):
         raise Unsupported("a Series indexed by label or position")
+    mask = ctx.expr(key, column.frame)
+    column = values_fixed(column)  # a rank or running sum keeps the values of all rows
     frame = column.frame
-    filtered = derive(frame, frame.code.method("filter", ctx.expr(key, frame)), same_rows=False)
+    filtered = derive(frame, frame.code.method("filter", mask), same_rows=False)
     return Column(ctx.expr(column, frame), frame=filtered, name=column.name, dtype=column.dtype,
                   refs=column.refs, versions=column.versions)
 
@@ -781,6 +790,8 @@ def series_label(call: PandasCall, ctx: RuleContext) -> Value:
     kinds = {str: "str", int: "int"}
     if kinds.get(type(key.const)) != frame.dtype(name):
         raise ctx.todo("a label of another type than the key column (or a key of unknown type)")
+    column = values_fixed(column)  # a rank or running sum keeps the values of all rows
+    frame = column.frame
     filtered = derive(frame, frame.code.method("filter", emit.binop(emit.col(name), "==",
                                                                   emit.lit(key.const))),
                       same_rows=False)

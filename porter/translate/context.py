@@ -4,6 +4,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from dataclasses import dataclass, field, replace
+import re
 from typing import Any
 
 import libcst as cst
@@ -517,3 +518,40 @@ def grouping_code(grouped: Grouped) -> Code:
         frame = frame.method("drop_nulls", emit.names_arg(grouped.keys))
     options = {} if grouped.sort else {"maintain_order": True}
     return frame.method("group_by", emit.names_arg(grouped.keys), **options)
+
+
+# expressions whose value on a row depends on other rows (ranks, running and window values,
+# reductions, sorts, positions): re-evaluated on fewer or reordered rows they change value
+_READS_OTHER_ROWS = re.compile(
+    r"\.(rank|cum_\w+|shift|diff|pct_change|rolling\w*|ewm_\w+|over|mean|sum|min|max|std|var|"
+    r"median|quantile|count|len|n_unique|first|last|head|tail|sort\w*|reverse|forward_fill|"
+    r"backward_fill|interpolate\w*|is_duplicated|is_unique|is_first_distinct|is_last_distinct|"
+    r"mode|map_batches|gather\w*|get|implode|arg_\w+|search_sorted|cumulative_eval|unique\w*|"
+    r"drop_nulls|drop_nans|filter|slice|shuffle|sample|top_k\w*|bottom_k\w*|value_counts|"
+    r"null_count|entropy|skew|kurtosis|product|any|all|item|peak_\w+|rle\w*)\("
+    r"|\bpl\.(len|int_range|sum|mean|min|max|count|first|last|corr|cov|cum_\w+|arg_\w+|"
+    r"map_batches|fold|reduce|cum_fold|cum_reduce)\("
+    r"|(?<![.\w])(?!pl\b|float\b|int\b|str\b)[a-z_]\w*\(")  # a helper of porter's: any rows
+
+
+VALUE_COLUMN = "_porter_value"
+
+
+def values_fixed(column: Column) -> Column:
+    """`column` ready for a row operation on its frame (a filter, head, sort, slice) after
+    which it is read: an expression that reads other rows (a rank, a running sum, a mean) is
+    computed on the frame as it is, into a column of its own, and read from there; re-evaluated
+    on the rows left, it would change (a rank among the rows kept, not among all). A column
+    read as it is, or computed from its own row alone, is returned as it is."""
+    text = column.code.text
+    # (an expression bound to a name, `r = pl.col("v").rank()`, is read through its name: it
+    # may be anything)
+    if not (_READS_OTHER_ROWS.search(text) or re.search(r"(?<![.\w\"'])(?!(pl|True|False|None)\b)[A-Za-z_]\w*"
+                                                        r"(?![\w(\"'])", text)):
+        return column
+    frame = column.frame
+    code = frame.code.method("with_columns", column.code.method("alias", VALUE_COLUMN))
+    fixed = with_column_updates(frame, code, {VALUE_COLUMN: column.dtype})
+    return replace(column, code=emit.col(VALUE_COLUMN), frame=fixed,
+                   refs=frozenset({VALUE_COLUMN}),
+                   versions=((VALUE_COLUMN, fixed.version(VALUE_COLUMN)),))
