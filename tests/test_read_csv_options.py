@@ -112,7 +112,7 @@ def test_read_csv_names_replace_the_header_line(tmp_path: Path, with_data: bool)
 
 
 @pytest.mark.parametrize("read", [
-    'pd.read_csv("a.csv", header=None)',  # integer column names
+    'pd.read_csv("a.csv", header=None)',  # integer column names, not known without --data
     'pd.read_csv("a.csv", header=1)',
     'pd.read_csv("a.csv", names=["a", "a"])',
 ])
@@ -255,4 +255,34 @@ def test_read_csv_decimal_comma_beside_the_comma_separator(tmp_path: Path) -> No
 
 def test_read_csv_other_decimal_stays_todo() -> None:
     text = convert('import pandas as pd\ndf = pd.read_csv("a.csv", decimal="\'")\n').converted_text
+    assert "TODO(porter): pd.read_csv" in text
+
+
+@pytest.mark.parametrize("use", [
+    # the columns as pandas labels them, their types, a write
+    'print(sailings.columns.tolist(), sailings.dtypes.astype(str).tolist(), len(sailings))',
+    # a column selected by its integer label: handed to pandas there
+    'sailings["double"] = sailings[1] * 2\nprint(sailings["double"].tolist())',
+    # named afterwards by a rename of the integer labels
+    'sailings = sailings.rename(columns={0: "pier", 1: "cars", 2: "hours"})\n'
+    'sailings["load"] = sailings["cars"] * 2\nprint(sailings.columns.tolist())',
+])
+def test_read_csv_no_header_line_and_no_names(tmp_path: Path, use: str) -> None:
+    # pandas labels the columns with the integers 0, 1, 2; porter names them "0", "1", "2"
+    result = same_text('import pandas as pd\n'
+                       'sailings = pd.read_csv("sailings.csv", header=None)\n'
+                       f'{use}\n'
+                       'sailings.to_csv("out.csv", index=False)\n',
+                       tmp_path, {"sailings.csv": SAILINGS})
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+    assert 'new_columns=["0", "1", "2"]' in result.converted_text
+
+
+@pytest.mark.parametrize("read", [
+    'pd.read_csv("sailings.csv", header=None, usecols=[0, 2])',
+    'pd.read_csv("sailings.csv", header=None, dtype={1: str})',
+])
+def test_read_csv_no_header_line_with_integer_keys_stays_todo(tmp_path: Path, read: str) -> None:
+    (tmp_path / "sailings.csv").write_text(SAILINGS)
+    text = convert(f"import pandas as pd\ndf = {read}\n", data_dir=str(tmp_path)).converted_text
     assert "TODO(porter): pd.read_csv" in text

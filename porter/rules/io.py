@@ -238,6 +238,13 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         if written is not None:
             overrides = {**_read_back_types(written, ctx), **overrides}
             kwargs["schema_overrides"] = overrides
+    if options.get("number_names"):
+        if schema is None or getattr(schema, "partial", False) or not schema:
+            raise ctx.todo("header=None without names=: pandas names the columns by the "
+                           "integers 0, 1, ...; porter names them \"0\", \"1\", ... when "
+                           "--data holds the file and shows how many there are")
+        # the scan names the columns as the schema reader named them ("0", "1", ...)
+        kwargs["new_columns"] = list(schema)
     if nrows is not None and getattr(schema, "polars", None) is None:
         # Polars infers column types from the whole file even when it reads n rows (and parses
         # past them), pandas only from the rows it reads.
@@ -367,7 +374,9 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                                 getattr(schema, "missing_ints", frozenset()))
     # pandas' read_csv makes plain numpy integers (float64 with a missing value) unless told
     frame = Frame(code, columns=columns, dtypes=tuple(dtypes.items()),
-                  nullable_ints=tuple(nullable.items()))
+                  nullable_ints=tuple(nullable.items()),
+                  # header=None without names=: pandas' labels are the integers 0, 1, ...
+                  number_labels=columns if options.get("number_names") and columns else ())
 
     usecols = call.const_values("usecols", kinds=(str, int))
     if usecols is not None:
@@ -424,10 +433,26 @@ def _header_and_names(call: PandasCall, ctx: RuleContext, kwargs: dict[str, obje
     if header == "infer":  # pandas: no header line when names are given, else the first line
         header = None if names is not None else 0
     if header is None and names is None:
-        # pandas names the columns 0, 1, ... (integers); Polars names must be text
-        # ("column_1"), and df[0] would select nothing
-        raise ctx.todo("header=None without names=: pandas names the columns by the integers "
-                       "0, 1, ...; give names=[...] so the columns have names Polars can carry")
+        # pandas labels the columns with the integers 0, 1, ...; Polars' names are text: the
+        # scan names them "0", "1", ... and the frame carries them as number labels, which a
+        # hand-over to pandas makes integers again (as for pd.DataFrame of rows). The count of
+        # columns comes from --data (read_csv sets new_columns from it).
+        for option in ("dtype", "usecols", "parse_dates", "converters"):
+            if call.has(option):
+                raise ctx.todo(f"header=None without names= beside {option}=: pandas names the "
+                               "columns by the integers 0, 1, ..., which porter does not read "
+                               f"in {option}=")
+        if call.has("na_values") and isinstance(call.const("na_values", None, None), dict):
+            raise ctx.todo("header=None without names= beside na_values per column: pandas "
+                           "names the columns by the integers 0, 1, ...")
+        if ctx.schema_lookup is None:
+            raise ctx.todo("header=None without names=: pandas names the columns by the "
+                           "integers 0, 1, ...; porter names them \"0\", \"1\", ... when "
+                           "--data shows how many there are (or give names=[...])")
+        kwargs["has_header"] = False
+        options["header"] = None
+        options["number_names"] = True
+        return
     if names is not None and len(set(names)) != len(names):
         raise ctx.todo("names= repeats a name (pandas refuses it)")
     if header is None:

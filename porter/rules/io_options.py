@@ -426,6 +426,8 @@ def scan_kwargs(options: dict[str, Any]) -> dict[str, Any]:
         kwargs["has_header"] = False
     if "names" in options:
         kwargs["new_columns"] = list(options["names"])
+    if options.get("number_names"):  # header=None without names=: pandas' 0, 1, ... as text
+        kwargs["with_column_names"] = lambda names: [str(i) for i in range(len(names))]
     if options.get("decimal") == ",":
         kwargs["decimal_comma"] = True
     if "skiprows" in options:
