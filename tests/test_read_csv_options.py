@@ -286,3 +286,60 @@ def test_read_csv_no_header_line_with_integer_keys_stays_todo(tmp_path: Path, re
     (tmp_path / "sailings.csv").write_text(SAILINGS)
     text = convert(f"import pandas as pd\ndf = {read}\n", data_dir=str(tmp_path)).converted_text
     assert "TODO(porter): pd.read_csv" in text
+
+
+# a seed bank's drawer log: comment lines before the header, between rows and after a blank
+# line (with --data only: without it porter does not look for blank lines, which pandas skips),
+# a "#" inside quoted fields (text, not a comment), NA tokens, accented text
+DRAWERS = ('# seed bank drawers, counted in spring\n'
+           '# second line of notes\n'
+           'drawer,seeds,label,weight\n'
+           'A1,120,"Pois #3",1.5\n'
+           '# A2 is empty this year\n'
+           'B7,,"Fève, naine",NA\n'
+           '\n'
+           '#\n'
+           'C2,45,"#lentille",2\n'
+           'D4,7,Blé,n/a\n')
+
+
+@pytest.mark.parametrize("with_data", [True, False])
+@pytest.mark.parametrize("options", ['comment="#"', 'comment="#", nrows=2',
+                                     'comment="#", usecols=["label", "seeds"]'])
+def test_read_csv_comment_lines(tmp_path: Path, options: str, with_data: bool) -> None:
+    result = same_text(f'''
+        import pandas as pd
+        drawers = pd.read_csv("drawers.csv", {options})
+        print(drawers.columns.tolist(), drawers.dtypes.astype(str).tolist(), len(drawers))
+        drawers["tag"] = drawers["label"] + "!"
+        drawers.to_csv("out.csv", index=False)
+        ''', tmp_path, {"drawers.csv": DRAWERS if with_data else DRAWERS.replace("\n\n", "\n")},
+        with_data=with_data)
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+    assert 'comment_prefix="#"' in result.converted_text
+    read = next(s for s in result.sites if s.key == "pd.read_csv")
+    if not with_data:  # a comment after the data on a line is not looked for
+        assert read.confidence <= 0.8
+
+
+@pytest.mark.parametrize("text", [
+    'drawer,seeds\nA1,120 # recounted\nB7,3\n',  # after the data
+    'drawer,seeds # how many\nA1,120\n',  # after the header
+    'drawer,seeds\nA1,120\n  # indented\nB7,3\n',  # after spaces
+    'drawer,seeds\nA1,#120\n',  # a field that starts with it
+])
+def test_read_csv_comment_after_data_stays_todo(tmp_path: Path, text: str) -> None:
+    # pandas cuts the line at the comment character, Polars' comment_prefix skips whole lines
+    (tmp_path / "drawers.csv").write_text(text)
+    result = convert('import pandas as pd\ndf = pd.read_csv("drawers.csv", comment="#")\n',
+                     data_dir=str(tmp_path))
+    assert "TODO(porter): pd.read_csv" in result.converted_text
+
+
+@pytest.mark.parametrize("read", [
+    'pd.read_csv("a.csv", comment="//")',
+    'pd.read_csv("a.csv", comment="#", skiprows=2)',
+])
+def test_read_csv_comment_forms_porter_does_not_read_stay_todo(read: str) -> None:
+    text = convert(f"import pandas as pd\ndf = {read}\n").converted_text
+    assert "TODO(porter): pd.read_csv" in text

@@ -70,6 +70,10 @@ class FileSchema(dict[str, str]):
     # pandas' (\n, \r\n or a bare \r): "cr" when every line ends in a bare \r (read with
     # eol_char="\r"), "mixed" when bare \r and \n both end lines (no reader option does that)
     line_ends: str | None = None
+    # read_csv(comment="#"): the character appears outside quotes after the start of a line
+    # (1,2 # note, or after spaces), where pandas cuts the line and Polars' comment_prefix,
+    # which skips whole lines only, does not
+    trailing_comments: bool = False
     # parquet: the columns pandas wrote with one of its nullable dtypes (Int64, boolean,
     # string, Float64), from the pandas metadata of the file, which pandas' read_parquet
     # restores; {} for a file without any, None when not looked at
@@ -212,6 +216,9 @@ class SchemaReader:
             found.wide_ints = tuple(wide)
             found.typed_categories = _typed_categories(file, options)
             found.line_ends = "cr" if options.get("lineterminator") == "\r" else None
+            if options.get("comment"):
+                found.trailing_comments = _trailing_comments(file, options["comment"],
+                                                             options.get("quotechar", '"'))
             if found.no_rows:
                 found.polars = None
         if reader == "parquet":
@@ -255,10 +262,14 @@ def _first_rows(file: Path, head: Path, options: dict[str, Any]) -> bool:
     kept = int(options.get("skiprows") or 0)
     taken = 0
 
+    comment = options.get("comment")
+
     def feed():  # counts the lines the csv reader takes
         nonlocal kept
         while kept < len(lines):
             kept += 1
+            if comment and lines[kept - 1].startswith(comment):
+                continue  # a comment line (read_csv(comment=...)): no row
             yield lines[kept - 1]
 
     rows = csv.reader(feed(), delimiter=options.get("sep", ","))
@@ -323,6 +334,35 @@ def _line_ends(file: Path) -> str | None:
     return "mixed" if b"\n" in data else "cr"
 
 
+def _trailing_comments(file: Path, comment: str, quote: str) -> bool:
+    """Whether `comment` appears outside quoted fields anywhere but at the start of a line (a
+    line starting with it is skipped whole, by pandas and by Polars' comment_prefix alike);
+    True when the file is not looked at (the careful answer)."""
+    if file.stat().st_size > SAMPLE_SCAN_LIMIT or compression_of(str(file)):
+        return True
+    try:
+        text = file.read_text(encoding="utf-8-sig", errors="replace")
+    except OSError:
+        return True
+    quoted, at_start = False, True
+    skipping = False  # inside a comment line
+    for char in text:
+        if char in "\r\n" and not quoted:
+            at_start, skipping = True, False
+            continue
+        if skipping:
+            continue
+        if at_start and char == comment:
+            skipping, at_start = True, False
+            continue
+        at_start = False
+        if char == quote:
+            quoted = not quoted
+        elif char == comment and not quoted:
+            return True
+    return False
+
+
 def _implicit_index(file: Path, options: dict[str, Any]) -> bool:
     """Whether the first data row has one field more than the header, where pandas takes
     the first column as the index (Polars' reader fails on such a row)."""
@@ -335,6 +375,8 @@ def _implicit_index(file: Path, options: dict[str, Any]) -> bool:
     try:
         with file.open(encoding="utf-8-sig", errors="replace", newline="") as handle:
             lines = itertools.islice(handle, int(options.get("skiprows") or 0), None)
+            if options.get("comment"):  # lines skipped as comments are no header nor row
+                lines = (line for line in lines if not line.startswith(options["comment"]))
             rows = (r for r in csv.reader(lines, delimiter=options.get("sep", ",")) if r)
             header, first = next(rows, None), next(rows, None)
     except (OSError, csv.Error):

@@ -103,7 +103,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     """
     known = {"filepath_or_buffer", "sep", "delimiter", "usecols", "dtype", "parse_dates",
              "na_values", "keep_default_na", "nrows", "skiprows", "encoding", "header", "names",
-             "decimal",
+             "decimal", "comment",
              *READ_CSV_IGNORED}
     ctx.reject_unknown(call, *known, positional=1)
     source = call.arg("filepath_or_buffer", 0)
@@ -161,6 +161,19 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         decoded = encoding
         options["encoding"] = spelled
     _header_and_names(call, ctx, kwargs, options)
+    comment = call.const("comment", None, None, kinds=(str, type(None))) if call.has("comment") else None
+    if comment is not None:
+        if len(comment) != 1:
+            raise ctx.todo(f"comment={comment!r}: pandas takes a single character")
+        if call.has("skiprows"):
+            # pandas skips the lines first and then the comments; Polars' skip_rows counts
+            # otherwise beside comment_prefix (measured: it reads a skipped header)
+            raise ctx.todo("comment= beside skiprows=: Polars' reader counts the skipped rows "
+                           "otherwise than pandas beside a comment prefix")
+        # a line starting with the character is skipped by both (in a quoted field it is
+        # text in both); one after data on a line is looked for below (--data)
+        kwargs["comment_prefix"] = comment
+        options["comment"] = comment
     decimal = call.const("decimal", None, ".", kinds=(str,)) if call.has("decimal") else "."
     if decimal not in (".", ","):
         raise ctx.todo(f"decimal={call.arg('decimal').code.text}: Polars' reader reads a "
@@ -238,6 +251,16 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         if written is not None:
             overrides = {**_read_back_types(written, ctx), **overrides}
             kwargs["schema_overrides"] = overrides
+    if comment is not None and getattr(schema, "trailing_comments", False):
+        raise ctx.todo(f"comment={comment!r} after the data on a line (1,2 {comment} note), or "
+                       "after spaces: pandas cuts the line there, Polars' comment_prefix skips "
+                       "only lines that start with it and keeps the rest of this one in the last "
+                       "field")
+    if comment is not None and schema is None:
+        ctx.lower(f"comment={comment!r}: lines that start with it are skipped, as pandas skips "
+                  f"them; a comment after the data on a line (1,2 {comment} note) is cut off by "
+                  "pandas and kept in the last field by Polars (run with --data to have porter "
+                  "look)", 0.8)
     if options.get("number_names"):
         if schema is None or getattr(schema, "partial", False) or not schema:
             raise ctx.todo("header=None without names=: pandas names the columns by the "

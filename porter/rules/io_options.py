@@ -430,6 +430,8 @@ def scan_kwargs(options: dict[str, Any]) -> dict[str, Any]:
         kwargs["with_column_names"] = lambda names: [str(i) for i in range(len(names))]
     if options.get("decimal") == ",":
         kwargs["decimal_comma"] = True
+    if options.get("comment"):  # lines that start with it (the schema reader looks at others)
+        kwargs["comment_prefix"] = options["comment"]
     if "skiprows" in options:
         kwargs["skip_rows"] = options["skiprows"]
     if "lineterminator" in options:  # lines ending in a bare \r (the schema reader's finding)
