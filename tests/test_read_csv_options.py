@@ -343,3 +343,71 @@ def test_read_csv_comment_after_data_stays_todo(tmp_path: Path, text: str) -> No
 def test_read_csv_comment_forms_porter_does_not_read_stay_todo(read: str) -> None:
     text = convert(f"import pandas as pd\ndf = {read}\n").converted_text
     assert "TODO(porter): pd.read_csv" in text
+
+
+# an orchard co-op's yearly harvest: quoted numbers with a thousands comma beside the comma
+# separator, a decimal part, a missing value, a plus sign and spaces, a column of text that
+# holds a comma between digits but is not all numbers, a trailing separator ("5,"), "1,2,3"
+HARVEST = ('orchard,kilos,price,plot,code\n'
+           'Verger du Moulin,"1,234","1,234.5",A-1,"1,2,3"\n'
+           'Clos Bérénice,"12,345",7.25,"12,5 ares",7\n'
+           'Pré Haut,,"+2,000.75",B,"5,"\n'
+           'Côte Grise," 3,400 ",NA,"1,000",12\n')
+
+
+@pytest.mark.parametrize("options", [
+    'thousands=","',
+    'thousands=",", usecols=["price", "kilos", "orchard"]',
+    'thousands=",", na_values=["7.25"]',
+    'thousands=",", nrows=2',
+])
+def test_read_csv_thousands_separator(tmp_path: Path, options: str) -> None:
+    result = same_text(f'''
+        import pandas as pd
+        harvest = pd.read_csv("harvest.csv", {options})
+        print(harvest.columns.tolist(), harvest.dtypes.astype(str).tolist())
+        harvest["total"] = harvest["kilos"] * harvest["price"]
+        print(harvest["total"].sum())
+        harvest.to_csv("out.csv", index=False)
+        ''', tmp_path, {"harvest.csv": HARVEST})
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+    assert 'replace_all(",", "", literal=True)' in result.converted_text
+
+
+# a ferry line's takings with a semicolon separator, a point for thousands and a comma for
+# decimals, and a space for thousands in another file
+@pytest.mark.parametrize(("text", "options"), [
+    ('quai;recette;passagers\nLe Palais;1.234,50;1.200\nSauzon;"12.000";80\n'
+     'Port-Tudy;;2.003.004\n', 'sep=";", thousands=".", decimal=","'),
+    ('quai,recette,passagers\nLe Palais,1 234.5,1 200\nSauzon,12 000,80\nPort-Tudy,,7\n',
+     'thousands=" "'),
+])
+def test_read_csv_thousands_point_and_space(tmp_path: Path, text: str, options: str) -> None:
+    result = same_text(f'''
+        import pandas as pd
+        takings = pd.read_csv("takings.csv", {options})
+        print(takings.dtypes.astype(str).tolist(), takings["recette"].sum())
+        takings.to_csv("out.csv", index=False)
+        ''', tmp_path, {"takings.csv": text})
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+
+
+@pytest.mark.parametrize("text", [
+    'a,b\n"1,,234",x\n7,y\n',  # doubled: an integer to pandas here, text in a float column
+    'a,b\n"1,234,567,890,123,456,789",x\n',  # 19 digits: int64 to pandas
+])
+def test_read_csv_thousands_porter_cannot_tell_stays_todo(tmp_path: Path, text: str) -> None:
+    (tmp_path / "a.csv").write_text(text)
+    result = convert('import pandas as pd\ndf = pd.read_csv("a.csv", thousands=",")\n',
+                     data_dir=str(tmp_path))
+    assert "TODO(porter): pd.read_csv" in result.converted_text
+
+
+@pytest.mark.parametrize("read", [
+    'pd.read_csv("a.csv", thousands=",")',  # without --data
+    'pd.read_csv("a.csv", thousands=".")',  # the decimal point too
+    'pd.read_csv("a.csv", thousands=",", dtype={"a": float})',
+])
+def test_read_csv_thousands_forms_porter_does_not_read_stay_todo(read: str) -> None:
+    text = convert(f"import pandas as pd\ndf = {read}\n").converted_text
+    assert "TODO(porter): pd.read_csv" in text

@@ -74,6 +74,9 @@ class FileSchema(dict[str, str]):
     # (1,2 # note, or after spaces), where pandas cuts the line and Polars' comment_prefix,
     # which skips whole lines only, does not
     trailing_comments: bool = False
+    # read_csv(thousands=","): text columns whose numbers porter cannot tell pandas' reading of
+    # (a separator doubled, "1,,234", an integer of more than 18 digits)
+    thousands_unsure: tuple[str, ...] = ()
     # parquet: the columns pandas wrote with one of its nullable dtypes (Int64, boolean,
     # string, Float64), from the pandas metadata of the file, which pandas' read_parquet
     # restores; {} for a file without any, None when not looked at
@@ -189,6 +192,7 @@ class SchemaReader:
             if reader == "csv":
                 schema = pl.scan_csv(file, **scan_kwargs(options)).collect_schema()
                 blank_lines, empty_rows = _blank_lines(file, scan_kwargs(options))
+                unsure = _thousands_unsure(file, schema, options)
                 schema, padded, padded_ints = _text_read_as_numbers(file, schema, options)
                 schema, missing_ints = _missing_ints_as_floats(
                     file, schema, options, skip_blank=bool(blank_lines) and not empty_rows)
@@ -211,6 +215,7 @@ class SchemaReader:
             found.blank_lines, found.empty_rows = blank_lines, empty_rows
             found.first_texts, found.text_heads = _first_texts(file, schema, options)
             found.missing_ints = frozenset(missing_ints | padded_ints)
+            found.thousands_unsure = unsure
             found.no_rows = _no_rows(file, options)
             found.implicit_index = _implicit_index(file, options)
             found.wide_ints = tuple(wide)
@@ -468,6 +473,38 @@ PLAIN_FLOAT = r"^-?([0-9]+\.?[0-9]*|\.[0-9]+)([eE][+-]?[0-9]+)?$"
 PADDING = " \t"
 
 
+def _with_thousands(pattern: str, separator: str) -> str:
+    """PADDED_INT or PADDED_FLOAT allowing pandas' thousands separator in the whole part of the
+    number: once between two digits, or after the last one ("1,234", "1,2,3", "5,", "1,.5",
+    "1,e3"; measured on pandas 3.1: ",5" and "1,,234" in a float column stay text)."""
+    sep = f"\\x{{{ord(separator):X}}}"
+    whole = f"[0-9](?:{sep}?[0-9])*{sep}?"
+    if pattern == PADDED_INT:
+        return f"^[+-]?{whole}$"
+    return f"^[+-]?({whole}(\\.[0-9]*)?|\\.[0-9]+)([eE][+-]?[0-9]+)?$"
+
+
+def _thousands_unsure(file: Path, schema: Any, options: dict[str, Any]) -> tuple[str, ...]:
+    """The text columns where read_csv(thousands=...) may read numbers porter does not tell:
+    a value with the separator doubled after a digit ("1,,234": an integer to pandas in a column
+    of integers, text in one of floats), or an integer of more than 18 digits (int64 to pandas,
+    float here)."""
+    separator = options.get("thousands")
+    if not separator or file.stat().st_size > SAMPLE_SCAN_LIMIT:
+        return ()
+    texts = [name for name, dtype in schema.items() if dtype == pl.String]
+    if not texts:
+        return ()
+    sep = f"\\x{{{ord(separator):X}}}"
+    whole = f"^[+-]?[0-9](?:{sep}?[0-9])*{sep}?$"
+    row = pl.scan_csv(file, **scan_kwargs(options)).select(
+        *[(pl.col(n).str.contains(f"[0-9]{sep}{sep}")
+           | (pl.col(n).str.strip_chars(PADDING).str.contains(whole)
+              & (pl.col(n).str.replace_all("[^0-9]", "").str.len_chars() > 18))).any()
+          .alias(n) for n in texts]).collect().row(0, named=True)
+    return tuple(n for n in texts if row[n])
+
+
 def _text_read_as_numbers(file: Path, schema: Any, options: dict[str, Any]) \
         -> tuple[dict[str, Any], dict[str, Any], set[str]]:
     """The schema with the text columns pandas reads as numbers typed as pandas types them,
@@ -490,13 +527,22 @@ def _text_read_as_numbers(file: Path, schema: Any, options: dict[str, Any]) \
         return found, {}, set()
     frame = pl.scan_csv(file, **scan_kwargs(options))
     stripped = [pl.col(name).str.strip_chars(PADDING) for name in texts]
-    padded_float, plain_float = PADDED_FLOAT, PLAIN_FLOAT
+    padded_int, padded_float, plain_float = PADDED_INT, PADDED_FLOAT, PLAIN_FLOAT
+    if options.get("thousands"):  # "1,234": a number to pandas, text to Polars
+        padded_int, padded_float = (_with_thousands(p, options["thousands"])
+                                    for p in (PADDED_INT, PADDED_FLOAT))
+        # at most 18 digits for an integer, as PADDED_INT (_thousands_unsure finds longer ones)
+        stripped_ints = [s.str.contains(padded_int)
+                         & (s.str.replace_all("[^0-9]", "").str.len_chars() <= 18)
+                         for s in stripped]
+    else:
+        stripped_ints = [s.str.contains(padded_int) for s in stripped]
     if options.get("decimal") == ",":  # "1,5" is a number to pandas then, "1.5" text
-        padded_float, plain_float = (p.replace(r"\.", ",") for p in (PADDED_FLOAT, PLAIN_FLOAT))
+        padded_float, plain_float = (p.replace(r"\.", ",") for p in (padded_float, PLAIN_FLOAT))
     row = frame.select(
         pl.len().alias("\0rows"),
         *[pl.col(name).null_count().alias(f"\0nulls{i}") for i, name in enumerate(texts)],
-        *[s.str.contains(PADDED_INT).all().alias(f"\0int{i}") for i, s in enumerate(stripped)],
+        *[s.all().alias(f"\0int{i}") for i, s in enumerate(stripped_ints)],
         *[s.str.contains(padded_float).all().alias(f"\0float{i}") for i, s in enumerate(stripped)],
         *[(pl.col(name).str.contains(INFINITY) | s.str.contains(padded_float)).all()
           .alias(f"\0inf{i}") for i, (name, s) in enumerate(zip(texts, stripped))],

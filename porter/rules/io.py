@@ -103,7 +103,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     """
     known = {"filepath_or_buffer", "sep", "delimiter", "usecols", "dtype", "parse_dates",
              "na_values", "keep_default_na", "nrows", "skiprows", "encoding", "header", "names",
-             "decimal", "comment",
+             "decimal", "comment", "thousands",
              *READ_CSV_IGNORED}
     ctx.reject_unknown(call, *known, positional=1)
     source = call.arg("filepath_or_buffer", 0)
@@ -186,6 +186,24 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                       "are read as decimals, as in pandas", 0.95)
         kwargs["decimal_comma"] = True
         options["decimal"] = ","
+    thousands = call.const("thousands", None, None, kinds=(str, type(None))) \
+        if call.has("thousands") else None
+    if thousands is not None:
+        if len(thousands) != 1 or thousands.isalnum():
+            raise ctx.todo(f"thousands={thousands!r}: porter reads one character that is not "
+                           "a letter or a digit")
+        if thousands == decimal:
+            raise ctx.todo(f"thousands={thousands!r} is the decimal character too: pandas "
+                           "reads \"1.5\" as 15")
+        if call.has("dtype"):
+            # pandas strips the separator from a column given a number dtype too, Polars'
+            # reader fails on "1,234" told it is Int64
+            raise ctx.todo("thousands= beside dtype=: Polars' reader does not read \"1,234\" "
+                           "as a number when told the column's type")
+        # Polars' reader has no thousands separator: with --data porter finds the columns
+        # pandas reads as numbers ("1,234", quoted beside the comma separator), reads them as
+        # text, removes the separator and casts them (the `padded` columns below)
+        options["thousands"] = thousands
     per_column = _na_values_per_column(call, ctx)
     na_values = None if per_column is not None else call.const_values("na_values")
     nulls: object = emit.atom(NA_CONSTANT)
@@ -251,6 +269,15 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         if written is not None:
             overrides = {**_read_back_types(written, ctx), **overrides}
             kwargs["schema_overrides"] = overrides
+    if thousands is not None and (schema is None or getattr(schema, "partial", False)):
+        raise ctx.todo(f"thousands={thousands!r}: Polars' reader has no thousands separator; "
+                       "porter removes it from the columns pandas reads as numbers, which it "
+                       "finds with --data (run with --data, or read those columns as text and "
+                       "remove it)")
+    for column in getattr(schema, "thousands_unsure", ()):
+        raise ctx.todo(f"thousands={thousands!r}: column {column!r} holds the separator doubled "
+                       "after a digit (\"1,,234\": a number to pandas in a column of integers, "
+                       "text in one of floats) or an integer of more than 18 digits")
     if comment is not None and getattr(schema, "trailing_comments", False):
         raise ctx.todo(f"comment={comment!r} after the data on a line (1,2 {comment} note), or "
                        "after spaces: pandas cuts the line there, Polars' comment_prefix skips "
@@ -369,13 +396,18 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         # Polars text; stripped and cast as pandas types them (--data showed every value fits)
         stripped = {c: emit.col(unnamed.get(c, c)).attr("str").method("strip_chars", PADDING)
                     for c in padded}
+        if thousands is not None:  # "1,234" -> "1234" (--data showed where it is one number)
+            stripped = {c: e.attr("str").method("replace_all", thousands, "", literal=True)
+                        for c, e in stripped.items()}
         if decimal == ",":  # "1,5" -> "1.5", which the cast reads (decimal=",")
             stripped = {c: e.attr("str").method("replace", ",", ".", literal=True)
                         for c, e in stripped.items()}
         code = code.method("with_columns", *[
             stripped[c].method("cast", emit.atom(t)) for c, t in padded.items()])
-        ctx.lower("numbers written with spaces around them or a plus sign are read as text and "
-                  "cast (--data showed every value of those columns is a number)", 0.95)
+        ctx.lower("numbers written with spaces around them or a plus sign"
+                  + (f" or the thousands separator {thousands!r}" if thousands is not None else "")
+                  + " are read as text" + (", the separator removed," if thousands is not None else "")
+                  + " and cast (--data showed every value of those columns is a number)", 0.95)
     if emptied:
         # pandas empties these columns' own tokens before it infers their types
         exprs = []
