@@ -77,6 +77,9 @@ class FileSchema(dict[str, str]):
     # read_csv(thousands=","): text columns whose numbers porter cannot tell pandas' reading of
     # (a separator doubled, "1,,234", an integer of more than 18 digits)
     thousands_unsure: tuple[str, ...] = ()
+    # read_csv(skipinitialspace=True): a quote after the spaces that follow a separator, where
+    # pandas starts a quoted field and Polars' reader keeps the spaces and the quotes as text
+    spaced_quotes: bool = False
     # parquet: the columns pandas wrote with one of its nullable dtypes (Int64, boolean,
     # string, Float64), from the pandas metadata of the file, which pandas' read_parquet
     # restores; {} for a file without any, None when not looked at
@@ -170,6 +173,8 @@ class SchemaReader:
                 return found
             if ends == "cr":  # the helpers below read it with eol_char="\r" (scan_kwargs)
                 options = {**options, "lineterminator": "\r"}
+        if reader == "csv" and options.get("skipinitialspace"):
+            return self._read_stripped(file, options)
         if reader == "csv" and isinstance(options.get("nrows"), int):
             # pandas infers the types of read_csv(nrows=N) from the N rows it reads: porter
             # reads the types of those rows only, from a copy of the file cut after them
@@ -180,6 +185,47 @@ class SchemaReader:
                     return None
                 return self._read_file(reader, head, options)
         return self._read_file(reader, file, options)
+
+    def _read_stripped(self, file: Path, options: dict[str, Any]) -> dict[str, str] | None:
+        """read_csv(skipinitialspace=True): the schema of the file as pandas reads it once the
+        spaces after each separator are gone, read from a copy with them removed (the values
+        and the header names, as read_csv's scan removes them; the lines skipped, comments and
+        the rows past nrows left out)."""
+        import tempfile
+
+        if file.stat().st_size > SAMPLE_SCAN_LIMIT or compression_of(str(file)):
+            return None
+        spaced = _spaced_quotes(file, options.get("sep", ","))
+        if spaced is None:
+            return None
+        if spaced:  # pandas starts a quoted field after the spaces, Polars' reader does not
+            found = FileSchema()
+            found.spaced_quotes = True
+            return found
+        read = {k: v for k, v in options.items() if k in ("sep", "nrows", "skiprows", "comment",
+                                                          "lineterminator")}
+        kwargs = {**scan_kwargs(read), "null_values": None, "infer_schema_length": 0}
+        if "nrows" in read:
+            kwargs["n_rows"] = read["nrows"]
+        blank_lines, empty_rows = _blank_lines(file, scan_kwargs(options))
+        try:
+            frame = pl.scan_csv(file, **kwargs)
+            if blank_lines and not empty_rows:  # blank lines, which pandas skips
+                frame = frame.filter(~pl.all_horizontal(pl.all().is_null()))
+            table = frame.rename(lambda name: name.lstrip(" ")).with_columns(
+                pl.all().str.strip_chars_start(" ")).collect()
+        except (pl.exceptions.PolarsError, OSError, ValueError):
+            return None
+        rest = {k: v for k, v in options.items() if k not in (*read, "skipinitialspace")}
+        if "sep" in options:
+            rest["sep"] = options["sep"]
+        with tempfile.TemporaryDirectory() as folder:
+            copy = Path(folder) / "stripped.csv"
+            table.write_csv(copy, separator=options.get("sep", ","))
+            found = self._read_file("csv", copy, rest)
+        if isinstance(found, FileSchema):
+            found.blank_lines, found.empty_rows = blank_lines, empty_rows
+        return found
 
     def _read_file(self, reader: str, file: Path, options: dict[str, Any]) -> dict[str, str] | None:
         if reader == "csv" and _implicit_index(file, options):
@@ -365,6 +411,31 @@ def _trailing_comments(file: Path, comment: str, quote: str) -> bool:
             quoted = not quoted
         elif char == comment and not quoted:
             return True
+    return False
+
+
+def _spaced_quotes(file: Path, separator: str, quote: str = '"') -> bool | None:
+    """Whether a field starts with spaces and then a quote (`a, "b, c"`), outside quoted
+    fields; None when the file is not read."""
+    try:
+        text = file.read_text(encoding="utf-8-sig", errors="replace")
+    except OSError:
+        return None
+    quoted, spaces, at_field = False, 0, True
+    for char in text:
+        if quoted:
+            if char == quote:  # its end, or the first of a doubled quote (read on as text)
+                quoted, at_field, spaces = False, False, 0
+            continue
+        if at_field and char == " ":
+            spaces += 1
+            continue
+        if char == quote:
+            if at_field and spaces:
+                return True
+            quoted = True
+        at_field = char in (separator, "\n", "\r")
+        spaces = 0
     return False
 
 

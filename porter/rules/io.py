@@ -103,7 +103,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     """
     known = {"filepath_or_buffer", "sep", "delimiter", "usecols", "dtype", "parse_dates",
              "na_values", "keep_default_na", "nrows", "skiprows", "encoding", "header", "names",
-             "decimal", "comment", "thousands",
+             "decimal", "comment", "thousands", "skipinitialspace",
              *READ_CSV_IGNORED}
     ctx.reject_unknown(call, *known, positional=1)
     source = call.arg("filepath_or_buffer", 0)
@@ -204,6 +204,18 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         # pandas reads as numbers ("1,234", quoted beside the comma separator), reads them as
         # text, removes the separator and casts them (the `padded` columns below)
         options["thousands"] = thousands
+    skip_spaces = call.const("skipinitialspace", None, False, kinds=(bool,)) \
+        if call.has("skipinitialspace") else False
+    if skip_spaces:
+        if options.get("header", 0) is None or "names" in options:
+            raise ctx.todo("skipinitialspace=True beside header=None or names=")
+        if decimal != ".":
+            raise ctx.todo("skipinitialspace=True beside decimal=\",\"")
+        # pandas removes the spaces after each separator (and before a header name) before it
+        # reads the field: a field " NA" is missing, " 5" a number. Polars' reader has no such
+        # option: the scan reads every field as text, the spaces are removed, pandas' tokens
+        # made missing and the columns cast to the types --data shows pandas reads
+        options["skipinitialspace"] = True
     per_column = _na_values_per_column(call, ctx)
     na_values = None if per_column is not None else call.const_values("na_values")
     nulls: object = emit.atom(NA_CONSTANT)
@@ -269,6 +281,16 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         if written is not None:
             overrides = {**_read_back_types(written, ctx), **overrides}
             kwargs["schema_overrides"] = overrides
+    if skip_spaces and getattr(schema, "spaced_quotes", False):
+        raise ctx.todo("skipinitialspace=True and a quoted field after spaces (a, \"b, c\"): "
+                       "pandas starts the quoted field after the spaces, Polars' reader keeps "
+                       "the spaces and the quotes as text (and splits the field at its comma)")
+    if skip_spaces and (not getattr(schema, "polars", None) or getattr(schema, "partial", False)
+                        or "" in schema.polars):  # type: ignore[union-attr]
+        raise ctx.todo("skipinitialspace=True: Polars' reader has no option to remove the "
+                       "spaces after a separator; porter removes them after a scan of text and "
+                       "casts each column to the type pandas reads, which it knows with --data "
+                       "only (for columns of numbers or text)")
     if thousands is not None and (schema is None or getattr(schema, "partial", False)):
         raise ctx.todo(f"thousands={thousands!r}: Polars' reader has no thousands separator; "
                        "porter removes it from the columns pandas reads as numbers, which it "
@@ -368,10 +390,13 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
             ctx.lower("nrows: the scan is told the types of the rows pandas reads; Polars' "
                       "reader also parses some rows past them, and a value there that does "
                       "not fit those types (True/False) stops the read", 0.9)
+        if skip_spaces and not all(t.text in TEXT_CASTS for t in types.values()):
+            raise ctx.todo("skipinitialspace=True beside a column of a type porter does not cast "
+                           "from text as the reader reads it (True/False)")
         if all(t.text in TEXT_CASTS for t in types.values()) and decimal == ".":
             # (a cast of "1,5" to Float64 fails: a decimal comma is read by the typed scan)
             code = _scan_as_text(source.code, kwargs, types, bool(getattr(schema, "partial", False)),
-                                 decoded)
+                                 decoded, strip_start=skip_spaces)
         else:
             code = _scan(source.code, kwargs, decoded)
     else:
@@ -545,7 +570,7 @@ def _scan(source: Code, kwargs: dict[str, Any], encoding: str | None) -> Code:
 
 
 def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], partial: bool,
-                  encoding: str | None = None) -> Code:
+                  encoding: str | None = None, strip_start: bool = False) -> Code:
     """A scan of every column as text, pandas' missing-value tokens made missing, and a cast to
     the types porter read from --data.
 
@@ -556,7 +581,13 @@ def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], 
     the typed scan's schema_overrides ignore the ones it lacks."""
     options = {k: v for k, v in kwargs.items() if k not in ("schema_overrides", "null_values")}
     nulls = kwargs["null_values"]
-    code = _scan(source, options, encoding).method(
+    code = _scan(source, options, encoding)
+    if strip_start:
+        # read_csv(skipinitialspace=True): the spaces after each separator are not part of the
+        # field (nor of a header name), in pandas; tabs are
+        code = code.method("rename", emit.atom('lambda name: name.lstrip(" ")')).method(
+            "with_columns", emit.atom("pl.all()").attr("str").method("strip_chars_start", " "))
+    code = code.method(
         "with_columns",
         emit.pl("when", emit.unary("~", emit.atom("pl.all()").method("is_in", nulls)))
         .method("then", emit.atom("pl.all()")))
