@@ -451,3 +451,44 @@ def test_read_csv_spaces_before_a_quoted_field_stay_todo(tmp_path: Path, with_da
     result = convert('import pandas as pd\ndf = pd.read_csv("a.csv", skipinitialspace=True)\n',
                      data_dir=str(tmp_path) if with_data else None)
     assert "TODO(porter): pd.read_csv" in result.converted_text
+
+
+# a seed bank's shipments, gzip-compressed: a blank line (pandas skips it: the integer column
+# stays integer), NA tokens, accented text
+SHIPMENTS = 'lot,seeds,origin\n1,120,Bérénice\n\n2,NA,"Pré, haut"\n3,45,\n'
+
+
+@pytest.mark.parametrize(("name", "options"), [
+    ("shipments.csv.gz", ""),  # inferred from the name
+    ("shipments.csv.gz", ', compression="infer"'),
+    ("shipments.dat", ', compression="gzip"'),
+    ("shipments.dat", ', compression={"method": "gzip"}'),
+])
+def test_read_csv_gzip(tmp_path: Path, name: str, options: str) -> None:
+    import gzip
+    result = same_text_of_bytes(f'''
+        import pandas as pd
+        shipments = pd.read_csv("{name}"{options})
+        print(shipments.dtypes.astype(str).tolist(), len(shipments))
+        shipments.to_csv("out.csv", index=False)
+        ''', tmp_path, {name: gzip.compress(SHIPMENTS.encode())})
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+
+
+@pytest.mark.parametrize("read", [
+    'pd.read_csv("a.csv.gz", compression=None)',
+    'pd.read_csv("a.csv", compression="bz2")',
+    'pd.read_csv("a.csv", compression={"method": "gzip", "mtime": 1})',
+])
+def test_read_csv_compressions_porter_does_not_read_stay_todo(read: str) -> None:
+    text = convert(f"import pandas as pd\ndf = {read}\n").converted_text
+    assert "TODO(porter): pd.read_csv" in text
+
+
+def test_read_csv_no_compression_on_a_plain_name(tmp_path: Path) -> None:
+    result = same_text('''
+        import pandas as pd
+        shipments = pd.read_csv("shipments.csv", compression=None)
+        shipments.to_csv("out.csv", index=False)
+        ''', tmp_path, {"shipments.csv": SHIPMENTS})
+    assert "TODO(porter): pd.read_csv" not in result.converted_text

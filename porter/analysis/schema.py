@@ -162,6 +162,22 @@ class SchemaReader:
                     return None
                 rest = {k: v for k, v in options.items() if k != "encoding"}
                 return self._read_decoded(reader, copy, rest)
+        if reader == "csv" and _gzipped(file):
+            # a .gz file: Polars' scan decompresses it, and the helpers below, which read the
+            # file's lines themselves (blank lines, line ends, comments), read a plain copy
+            import gzip
+            import shutil
+            import tempfile
+            if file.stat().st_size > SAMPLE_SCAN_LIMIT:
+                return None
+            with tempfile.TemporaryDirectory() as folder:
+                copy = Path(folder) / "decompressed.csv"
+                try:
+                    with gzip.open(file, "rb") as packed, copy.open("wb") as plain:
+                        shutil.copyfileobj(packed, plain)
+                except (OSError, EOFError):
+                    return None
+                return self._read_decoded(reader, copy, options)
         return self._read_decoded(reader, file, options)
 
     def _read_decoded(self, reader: str, file: Path, options: dict[str, Any]) -> dict[str, str] | None:
@@ -280,6 +296,15 @@ class SchemaReader:
 # pandas' nullable dtypes as its parquet metadata names them ("numpy_type")
 _NULLABLE_DTYPES = {"Int8", "Int16", "Int32", "Int64", "UInt8", "UInt16", "UInt32", "UInt64",
                     "boolean", "string", "Float32", "Float64"}
+
+
+def _gzipped(file: Path) -> bool:
+    """Whether the file is gzip data (its first two bytes), as Polars' scan tells it."""
+    try:
+        with file.open("rb") as handle:
+            return handle.read(2) == b"\x1f\x8b"
+    except OSError:
+        return False
 
 
 def _pandas_nullable(file: Path) -> dict[str, str] | None:

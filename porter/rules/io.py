@@ -103,11 +103,12 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     """
     known = {"filepath_or_buffer", "sep", "delimiter", "usecols", "dtype", "parse_dates",
              "na_values", "keep_default_na", "nrows", "skiprows", "encoding", "header", "names",
-             "decimal", "comment", "thousands", "skipinitialspace",
+             "decimal", "comment", "thousands", "skipinitialspace", "compression",
              *READ_CSV_IGNORED}
     ctx.reject_unknown(call, *known, positional=1)
     source = call.arg("filepath_or_buffer", 0)
     check_source(source, ctx)
+    _compression(call, source, ctx)
     if _paths(source) is None and _names_a_loop_variable(call, ctx):
         # one of many files (a loop's or a comprehension's): Polars infers the types of each
         # file porter never saw, and its inference differs from pandas' (a day's file with an
@@ -694,6 +695,32 @@ def _emptied_columns(per_column: dict[str, list[str]], schema: Any, overrides: d
                            f"{kind or 'a type porter does not know'}, which porter does not "
                            "cast from text")
     return out
+
+
+def _compression(call: PandasCall, source: Value, ctx: RuleContext) -> None:
+    """read_csv(compression=...): "infer" (pandas' default: from the name, see check_source),
+    "gzip" or "zstd" (also as {"method": ...}), which Polars' scan reads from any name (it
+    tells them by their first bytes), or None on a name pandas infers no compression from.
+    Other methods, and None on a .gz / .zst name (pandas reads the compressed bytes as text,
+    Polars decompresses them), are TODOs."""
+    if not call.has("compression"):
+        return
+    given = call.const("compression", None, "?", kinds=(str, dict, type(None)))
+    method = given
+    if isinstance(given, dict):
+        if set(given) != {"method"}:
+            raise ctx.todo(f"compression={given!r}: porter reads a method alone")
+        method = given["method"]
+    if method in ("infer", "gzip", "zstd"):
+        return
+    if method is None:
+        path = _paths(source)
+        if isinstance(path, str) and compression_of(path) is None:
+            return
+        raise ctx.todo("compression=None on a file named .gz or .zst (or not known): pandas reads "
+                       "its bytes as text, Polars' scan decompresses them")
+    raise ctx.todo(f"compression={method!r}: Polars' scans decompress gzip and zstd only; "
+                   "decompress the file first, or read it with pandas and hand it over")
 
 
 def check_source(source: Value, ctx: RuleContext) -> None:
