@@ -492,3 +492,72 @@ def test_read_csv_no_compression_on_a_plain_name(tmp_path: Path) -> None:
         shipments.to_csv("out.csv", index=False)
         ''', tmp_path, {"shipments.csv": SHIPMENTS})
     assert "TODO(porter): pd.read_csv" not in result.converted_text
+
+
+# a seed bank's countries of origin: "NA" is Namibia, "n/a" and "" are texts too when pandas'
+# own tokens are off; a number column with an empty field (text to pandas then), one with
+# "-" for missing, accented text
+ORIGINS = ('code,country,seeds,weight,grams\n'
+           'NA,Namibie,120,1.5,10\n'
+           'FR,,45,-,20\n'
+           'n/a,Pérou,,2.25,-\n'
+           'NULL,"",7,0.5,30\n')
+
+
+@pytest.mark.parametrize("with_data", [True, False])
+@pytest.mark.parametrize("options", [
+    "keep_default_na=False",
+    'keep_default_na=False, na_values=["-"]',
+    'keep_default_na=False, na_values={"weight": ["-"], "country": ["NA"]}',
+])
+def test_read_csv_without_pandas_missing_tokens(tmp_path: Path, options: str, with_data: bool) -> None:
+    if not with_data and "{" in options:
+        pytest.skip("na_values per column needs --data")
+    result = same_text(f'''
+        import pandas as pd
+        origins = pd.read_csv("origins.csv", {options})
+        print(origins.dtypes.astype(str).tolist(), origins["code"].tolist())
+        origins["tag"] = origins["code"] + "/" + origins["country"]
+        origins.to_csv("out.csv", index=False)
+        ''', tmp_path, {"origins.csv": ORIGINS if with_data else ORIGINS.replace("Pérou,,", "Pérou,3,")},
+        with_data=with_data)
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+    assert "empty_string_is_null=False" in result.converted_text
+    read = next(s for s in result.sites if s.key == "pd.read_csv")
+    if not with_data:  # an empty field in a column of numbers is not looked for
+        assert read.confidence <= 0.8
+
+
+@pytest.mark.parametrize("chooser", [
+    'lambda c: c.startswith("k")',
+    'lambda c: c in {"price", "orchard", "absent"}',
+    'lambda c: c not in ("plot", "code")',
+    'lambda name: name.lower().endswith("e") or name == "kilos"',
+])
+def test_read_csv_usecols_function(tmp_path: Path, chooser: str) -> None:
+    # pandas calls the function with each header name; porter with those of --data
+    result = same_text(f'''
+        import pandas as pd
+        harvest = pd.read_csv("harvest.csv", thousands=",", usecols={chooser})
+        print(harvest.columns.tolist(), harvest.dtypes.astype(str).tolist())
+        harvest.to_csv("out.csv", index=False)
+        ''', tmp_path, {"harvest.csv": HARVEST})
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+    assert "lambda" not in result.converted_text
+
+
+@pytest.mark.parametrize("chooser", [
+    'lambda c: c in wanted',  # a name of the script
+    'lambda c: len(c) > 3',  # a builtin
+    'lambda c: c.startswith("zzz")',  # no column
+])
+def test_read_csv_usecols_functions_porter_does_not_call_stay_todo(tmp_path: Path, chooser: str) -> None:
+    (tmp_path / "harvest.csv").write_text(HARVEST)
+    text = convert(f'import pandas as pd\nwanted = ["kilos"]\ndf = pd.read_csv("harvest.csv", usecols={chooser})\n',
+                   data_dir=str(tmp_path)).converted_text
+    assert "TODO(porter): pd.read_csv" in text
+
+
+def test_read_csv_usecols_function_without_data_stays_todo() -> None:
+    text = convert('import pandas as pd\ndf = pd.read_csv("a.csv", usecols=lambda c: c != "x")\n').converted_text
+    assert "TODO(porter): pd.read_csv" in text

@@ -259,6 +259,10 @@ class SchemaReader:
                 schema, missing_ints = _missing_ints_as_floats(
                     file, schema, options, skip_blank=bool(blank_lines) and not empty_rows)
                 schema, wide = _unsigned_ints(file, schema, options)
+                if options.get("keep_default_na") is False:
+                    schema, emptied = _empty_fields_as_text(file, schema, options)
+                    missing_ints -= emptied
+                    padded = {k: v for k, v in padded.items() if k not in emptied}
             elif reader == "parquet":
                 schema = pl.scan_parquet(file).collect_schema()
             else:
@@ -296,6 +300,25 @@ class SchemaReader:
 # pandas' nullable dtypes as its parquet metadata names them ("numpy_type")
 _NULLABLE_DTYPES = {"Int8", "Int16", "Int32", "Int64", "UInt8", "UInt16", "UInt32", "UInt64",
                     "boolean", "string", "Float32", "Float64"}
+
+
+def _empty_fields_as_text(file: Path, schema: Any, options: dict[str, Any]) \
+        -> tuple[dict[str, Any], set[str]]:
+    """read_csv(keep_default_na=False): the schema with each column of numbers that holds an
+    empty field typed text, as pandas reads it (the field is "" then, not NaN; Polars' reader
+    reads a missing number), and the names of those columns."""
+    numbers = [name for name, dtype in schema.items() if dtype.is_numeric()]
+    found = dict(schema)
+    if not numbers:
+        return found, set()
+    kwargs = {**scan_kwargs(options), "infer_schema_length": 0}
+    kwargs.pop("schema_overrides", None)
+    row = pl.scan_csv(file, **kwargs).select(
+        *[(pl.col(n) == "").any().alias(n) for n in numbers]).collect().row(0, named=True)
+    emptied = {n for n in numbers if row[n]}
+    for name in emptied:
+        found[name] = pl.String
+    return found, emptied
 
 
 def _gzipped(file: Path) -> bool:

@@ -121,11 +121,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower("the file is named when the script runs (porter never saw it): Polars infers "
                   "its types over the whole file as pandas does, but reads numbers written "
                   "\" 5\" or \"+3\", an all-blank column and a file of a header only as text", 0.9)
-    if call.const("keep_default_na", None, True, kinds=(bool,)) is False:
-        # pandas then reads an empty field as "" (a column of numbers with an empty field
-        # becomes text), where Polars reads a missing number
-        raise ctx.todo("keep_default_na=False: pandas keeps empty fields as \"\" (a number "
-                       "column with one becomes text), Polars reads them as missing")
+    keep_default_na = call.const("keep_default_na", None, True, kinds=(bool,)) is not False
     bad_lines = call.const("on_bad_lines", None, "error", kinds=(str,)) if call.has("on_bad_lines") else "error"
     if bad_lines != "error":
         # pandas leaves out a row with more fields than the header (and warns with "warn");
@@ -217,14 +213,25 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         # option: the scan reads every field as text, the spaces are removed, pandas' tokens
         # made missing and the columns cast to the types --data shows pandas reads
         options["skipinitialspace"] = True
-    per_column = _na_values_per_column(call, ctx)
+    per_column = _na_values_per_column(call, ctx, keep_default_na)
     na_values = None if per_column is not None else call.const_values("na_values")
     nulls: object = emit.atom(NA_CONSTANT)
     if na_values is not None:
         extra = na_value_texts(na_values)
         nulls = emit.binop(emit.atom(NA_CONSTANT), "+", [v for v in extra if v not in PANDAS_NA_TOKENS])
         options["na_values"] = extra
-    kwargs["null_values"] = nulls
+    if not keep_default_na:
+        # pandas' own tokens are not missing then, nor is an empty field (""): only the
+        # na_values given are. Polars' reader keeps "" with empty_string_is_null=False, but
+        # reads an empty field of a number column as missing where pandas makes the column
+        # text: with --data porter reads such columns as text (schema.py)
+        if skip_spaces:
+            raise ctx.todo("keep_default_na=False beside skipinitialspace=True")
+        nulls = na_value_texts(na_values) if na_values is not None else None
+        kwargs["empty_string_is_null"] = False
+        options["keep_default_na"] = False
+    if nulls is not None:
+        kwargs["null_values"] = nulls
     dtype = call.const("dtype", None, None) if call.has("dtype") and _const_dtype_dict(call) else None
     all_text = False
     if call.has("dtype") and dtype is None:
@@ -409,7 +416,14 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     if unnamed:  # an empty header (a written index): pandas names it by its position
         code = code.method("rename", unnamed)
         schema = {unnamed.get(c, c): kind for c, kind in schema.items()}  # type: ignore[union-attr]
+    if not keep_default_na and schema is None:
+        ctx.lower("keep_default_na=False: an empty field in a column of numbers makes pandas "
+                  "read the column as text (\"\"), Polars reads a missing number (run with "
+                  "--data to have porter look)", 0.8)
     if getattr(schema, "blank_lines", False):
+        if not keep_default_na:
+            raise ctx.todo("keep_default_na=False and blank lines: pandas skips them, Polars "
+                           "reads each as a row of empty texts")
         if getattr(schema, "empty_rows", False):
             raise ctx.todo("the file has blank lines, which pandas skips and Polars reads as rows "
                            "of missing values, beside lines of only spaces or of empty fields, "
@@ -459,7 +473,25 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                   # header=None without names=: pandas' labels are the integers 0, 1, ...
                   number_labels=columns if options.get("number_names") and columns else ())
 
-    usecols = call.const_values("usecols", kinds=(str, int))
+    chooser = _usecols_function(call, ctx)
+    if chooser is not None:
+        # usecols=lambda c: ...: pandas calls it with each name of the header and keeps the
+        # columns it says yes to; porter calls it with the names --data shows
+        if frame.columns is None:
+            raise ctx.todo("usecols given as a function: porter calls it with the header's names, "
+                           "which it knows with --data only (or list the columns)")
+        try:
+            chosen = [c for c in frame.columns if chooser(c)]
+        except Exception as error:  # noqa: BLE001 - the script's function, on a header name
+            raise ctx.todo(f"usecols given as a function fails on a header name ({error})")
+        if not chosen:
+            raise ctx.todo("usecols given as a function keeps no column (pandas reads an empty frame)")
+        frame = _select_in_file_order(frame, chosen, ctx)
+        ctx.lower("usecols given as a function: called with the header of the --data file; a "
+                  "file with other columns gets these ones", 0.95)
+        usecols = None
+    else:
+        usecols = call.const_values("usecols", kinds=(str, int))
     if usecols is not None:
         frame = _select_in_file_order(frame, usecols, ctx)
     parse_dates = call.const("parse_dates", None, None, kinds=(bool, list, tuple))
@@ -581,17 +613,18 @@ def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], 
     Files of several layouts read by one call (`partial`) cast the columns each file has, as
     the typed scan's schema_overrides ignore the ones it lacks."""
     options = {k: v for k, v in kwargs.items() if k not in ("schema_overrides", "null_values")}
-    nulls = kwargs["null_values"]
+    nulls = kwargs.get("null_values")  # none with keep_default_na=False and no na_values
     code = _scan(source, options, encoding)
     if strip_start:
         # read_csv(skipinitialspace=True): the spaces after each separator are not part of the
         # field (nor of a header name), in pandas; tabs are
         code = code.method("rename", emit.atom('lambda name: name.lstrip(" ")')).method(
             "with_columns", emit.atom("pl.all()").attr("str").method("strip_chars_start", " "))
-    code = code.method(
-        "with_columns",
-        emit.pl("when", emit.unary("~", emit.atom("pl.all()").method("is_in", nulls)))
-        .method("then", emit.atom("pl.all()")))
+    if nulls is not None:
+        code = code.method(
+            "with_columns",
+            emit.pl("when", emit.unary("~", emit.atom("pl.all()").method("is_in", nulls)))
+            .method("then", emit.atom("pl.all()")))
     casts: dict[Any, Code] = {c: t for c, t in types.items() if t.text != "pl.String"}
     if partial:
         by_type: dict[str, list[str]] = {}
@@ -622,7 +655,8 @@ def _numbers_missing(code: Code, numbers: list[float], dtypes: dict[str, str] | 
     return code.method("with_columns", emit.call("pl.col", *columns).method("replace", numbers, None))
 
 
-def _na_values_per_column(call: PandasCall, ctx: RuleContext) -> dict[str, list[str]] | None:
+def _na_values_per_column(call: PandasCall, ctx: RuleContext,
+                          keep_default_na: bool = True) -> dict[str, list[str]] | None:
     """na_values={column: token(s)}: the texts each column adds to pandas' own tokens (which
     still apply to every column); None when na_values is not a dict."""
     if not call.has("na_values"):
@@ -638,7 +672,7 @@ def _na_values_per_column(call: PandasCall, ctx: RuleContext) -> dict[str, list[
             else [value]
         if not all(isinstance(v, str) or is_number(v) for v in values):
             raise ctx.todo(f"na_values[{column!r}]={value!r}: porter reads text or numbers here")
-        texts = [t for t in na_value_texts(values) if t not in PANDAS_NA_TOKENS]
+        texts = [t for t in na_value_texts(values) if t not in PANDAS_NA_TOKENS or not keep_default_na]
         if texts:
             per_column[column] = texts
     return per_column
@@ -803,6 +837,55 @@ def _pandas_writes(frame: Frame, call: PandasCall, target: Value, ctx: RuleConte
     passed = {name: _plain_argument(call, name) for name in (*HANDED_OPTIONS, *also)
               if call.has(name)}
     return Scalar(handover.to_pandas(frame).method("to_csv", target.code, **passed))
+
+
+# what a usecols function may use: its parameter, constants, comparisons, and str methods that
+# compute from the name alone
+_NAME_METHODS = {"startswith", "endswith", "lower", "upper", "strip", "lstrip", "rstrip",
+                 "isdigit", "isalpha", "isnumeric", "casefold", "replace", "split"}
+_SAFE_NODES = (ast.Expression, ast.Lambda, ast.arguments, ast.arg, ast.Name, ast.Load,
+               ast.Constant, ast.Compare, ast.BoolOp, ast.And, ast.Or, ast.UnaryOp, ast.Not,
+               ast.In, ast.NotIn, ast.Eq, ast.NotEq, ast.Set, ast.List, ast.Tuple, ast.Call,
+               ast.Attribute, ast.Subscript, ast.Slice)
+
+
+def _usecols_function(call: PandasCall, ctx: RuleContext) -> Any:
+    """usecols=lambda c: ... written in the call, as a Python function porter can call with a
+    header name, when it computes from the name alone (str methods, comparisons, constants:
+    `c.startswith("v")`, `c in {"a", "b"}`, `c not in ("x",)`); None when usecols is not a
+    lambda. A lambda that reads anything else is a TODO."""
+    node = next((arg.value for arg in call.node.args
+                 if arg.keyword is not None and arg.keyword.value == "usecols"), None) \
+        if isinstance(call.node, cst.Call) else None
+    if not isinstance(node, cst.Lambda):
+        return None
+    text = cst.Module([]).code_for_node(node)
+    try:
+        tree = ast.parse(text.strip(), mode="eval")
+    except SyntaxError:
+        raise ctx.todo("usecols given as a function porter cannot read")
+    function = tree.body
+    if not isinstance(function, ast.Lambda) or len(function.args.args) != 1 \
+            or function.args.vararg or function.args.kwarg or function.args.kwonlyargs \
+            or function.args.defaults:
+        raise ctx.todo("usecols given as a function of other than one parameter")
+    parameter = function.args.args[0].arg
+    for part in ast.walk(function.body):
+        if not isinstance(part, _SAFE_NODES):
+            raise ctx.todo(f"usecols given as a function that uses {type(part).__name__}: porter "
+                           "calls one made of the name, constants, comparisons and str methods")
+        if isinstance(part, ast.Name) and part.id != parameter:
+            raise ctx.todo(f"usecols given as a function that reads {part.id!r}: porter calls "
+                           "one made of the name, constants, comparisons and str methods")
+        if isinstance(part, ast.Call) and not (isinstance(part.func, ast.Attribute)
+                                               and part.func.attr in _NAME_METHODS):
+            raise ctx.todo("usecols given as a function that calls something other than a str "
+                           "method")
+        if isinstance(part, ast.Attribute) and part.attr not in _NAME_METHODS:
+            raise ctx.todo(f"usecols given as a function that reads .{part.attr}")
+        if isinstance(part, ast.Constant) and not isinstance(part.value, (str, int)):
+            raise ctx.todo("usecols given as a function with a constant other than text or a number")
+    return eval(compile(tree, "<usecols>", "eval"), {"__builtins__": {}})  # noqa: S307 - checked above
 
 
 def _select_in_file_order(frame: Frame, usecols: list[Any], ctx: RuleContext) -> Frame:

@@ -436,6 +436,9 @@ def scan_kwargs(options: dict[str, Any]) -> dict[str, Any]:
         kwargs["skip_rows"] = options["skiprows"]
     if "lineterminator" in options:  # lines ending in a bare \r (the schema reader's finding)
         kwargs["eol_char"] = options["lineterminator"]
+    if options.get("keep_default_na") is False:  # only the na_values given, and "" is text
+        kwargs["null_values"] = []
+        kwargs["empty_string_is_null"] = False
     na = options.get("na_values")
     if isinstance(na, str):
         kwargs["null_values"].append(na)
