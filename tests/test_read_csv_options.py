@@ -561,3 +561,54 @@ def test_read_csv_usecols_functions_porter_does_not_call_stay_todo(tmp_path: Pat
 def test_read_csv_usecols_function_without_data_stays_todo() -> None:
     text = convert('import pandas as pd\ndf = pd.read_csv("a.csv", usecols=lambda c: c != "x")\n').converted_text
     assert "TODO(porter): pd.read_csv" in text
+
+
+# a lighthouse keeper's tallies: a line of units above the header, a subtotal row of text
+# among the numbers (pandas infers the column's type without it), a blank line (a row to
+# pandas' skiprows count), a quoted field over two lines (one row), NA tokens, accents
+TALLIES = ('unités,,\n'
+           'phare,nuits,note\n'
+           'Kéréon,12,"calme"\n'
+           'sous-total,douze,-\n'
+           '\n'
+           'Ar-Men,NA,"houle\nforte"\n'
+           'Jument,7,n/a\n'
+           'total,dix-neuf,-\n')
+
+
+@pytest.mark.parametrize("options", [
+    "skiprows=[0, 3, 7]",
+    "skiprows=(0, 3, 7), usecols=['nuits', 'phare']",
+    'skiprows=[0, 3, 7], na_values=["-"]',
+    'skiprows=[0, 7, 3], header=None, names=["a", "b", "c"]',
+])
+def test_read_csv_list_of_rows_skipped(tmp_path: Path, options: str) -> None:
+    result = same_text(f'''
+        import pandas as pd
+        tallies = pd.read_csv("tallies.csv", {options})
+        print(tallies.columns.tolist(), tallies.dtypes.astype(str).tolist(), len(tallies))
+        tallies.to_csv("out.csv", index=False)
+        ''', tmp_path, {"tallies.csv": TALLIES})
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+    assert "pl.int_range(pl.len()).is_in(" in result.converted_text
+
+
+def test_read_csv_list_of_first_rows_skipped(tmp_path: Path) -> None:
+    # the first rows one after the other: the scan's skip_rows, no filter
+    result = same_text('''
+        import pandas as pd
+        tallies = pd.read_csv("tallies.csv", skiprows=[0])
+        print(tallies.columns.tolist(), len(tallies))
+        tallies.to_csv("out.csv", index=False)
+        ''', tmp_path, {"tallies.csv": TALLIES})
+    assert "skip_rows=1" in result.converted_text
+
+
+@pytest.mark.parametrize("read", [
+    'pd.read_csv("tallies.csv", skiprows=[0, 3])',  # without --data
+    'pd.read_csv("tallies.csv", skiprows=[0, 3], nrows=2)',
+    'pd.read_csv("tallies.csv", skiprows=lambda i: i % 2 == 1)',
+])
+def test_read_csv_lists_of_rows_porter_does_not_skip_stay_todo(read: str) -> None:
+    text = convert(f"import pandas as pd\ndf = {read}\n").converted_text
+    assert "TODO(porter): pd.read_csv" in text

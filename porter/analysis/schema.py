@@ -189,7 +189,7 @@ class SchemaReader:
                 return found
             if ends == "cr":  # the helpers below read it with eol_char="\r" (scan_kwargs)
                 options = {**options, "lineterminator": "\r"}
-        if reader == "csv" and options.get("skipinitialspace"):
+        if reader == "csv" and (options.get("skipinitialspace") or options.get("skiprows_list")):
             return self._read_stripped(file, options)
         if reader == "csv" and isinstance(options.get("nrows"), int):
             # pandas infers the types of read_csv(nrows=N) from the N rows it reads: porter
@@ -203,15 +203,18 @@ class SchemaReader:
         return self._read_file(reader, file, options)
 
     def _read_stripped(self, file: Path, options: dict[str, Any]) -> dict[str, str] | None:
-        """read_csv(skipinitialspace=True): the schema of the file as pandas reads it once the
-        spaces after each separator are gone, read from a copy with them removed (the values
-        and the header names, as read_csv's scan removes them; the lines skipped, comments and
-        the rows past nrows left out)."""
+        """read_csv(skipinitialspace=True), or skiprows= a list of rows: the schema of the
+        file as pandas reads it once the spaces after each separator are gone and the rows
+        skipped, read from a copy without them (the values and the header names, as read_csv's
+        scan removes them; the lines skipped, comments and the rows past nrows left out).
+        `skiprows_list` holds the positions of the data rows to leave out as the scan counts
+        them (a blank line is one)."""
         import tempfile
 
         if file.stat().st_size > SAMPLE_SCAN_LIMIT or compression_of(str(file)):
             return None
-        spaced = _spaced_quotes(file, options.get("sep", ","))
+        strip = bool(options.get("skipinitialspace"))
+        spaced = _spaced_quotes(file, options.get("sep", ",")) if strip else False
         if spaced is None:
             return None
         if spaced:  # pandas starts a quoted field after the spaces, Polars' reader does not
@@ -219,20 +222,26 @@ class SchemaReader:
             found.spaced_quotes = True
             return found
         read = {k: v for k, v in options.items() if k in ("sep", "nrows", "skiprows", "comment",
-                                                          "lineterminator")}
+                                                          "lineterminator", "header", "names",
+                                                          "number_names")}
         kwargs = {**scan_kwargs(read), "null_values": None, "infer_schema_length": 0}
         if "nrows" in read:
             kwargs["n_rows"] = read["nrows"]
         blank_lines, empty_rows = _blank_lines(file, scan_kwargs(options))
         try:
             frame = pl.scan_csv(file, **kwargs)
+            if options.get("skiprows_list"):
+                frame = frame.filter(~pl.int_range(pl.len()).is_in(list(options["skiprows_list"])))
             if blank_lines and not empty_rows:  # blank lines, which pandas skips
                 frame = frame.filter(~pl.all_horizontal(pl.all().is_null()))
-            table = frame.rename(lambda name: name.lstrip(" ")).with_columns(
-                pl.all().str.strip_chars_start(" ")).collect()
+            if strip:
+                frame = frame.rename(lambda name: name.lstrip(" ")).with_columns(
+                    pl.all().str.strip_chars_start(" "))
+            table = frame.collect()
         except (pl.exceptions.PolarsError, OSError, ValueError):
             return None
-        rest = {k: v for k, v in options.items() if k not in (*read, "skipinitialspace")}
+        rest = {k: v for k, v in options.items()
+                if k not in (*read, "skipinitialspace", "skiprows_list")}
         if "sep" in options:
             rest["sep"] = options["sep"]
         with tempfile.TemporaryDirectory() as folder:

@@ -271,9 +271,28 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         kwargs["schema_overrides"] = overrides
     kwargs["infer_schema_length"] = 0 if all_text else None
     skiprows = call.const("skiprows", None, None, kinds=(int, list, tuple))
+    dropped: list[int] = []  # the data rows a list of skiprows leaves out, as the scan counts
+    if skiprows is not None and not isinstance(skiprows, int):
+        rows = list(skiprows)
+        if not all(isinstance(r, int) and not isinstance(r, bool) and r >= 0 for r in rows):
+            raise ctx.todo(f"skiprows={rows!r}: porter reads rows as numbers from 0")
+        # pandas counts the file's rows from 0 (the header line is 0; a blank line is a row, a
+        # quoted field over several lines one row): the first rows skipped one after the other
+        # are the scan's skip_rows, the others are left out after a scan of text, before
+        # the types --data shows pandas infers for what is left are cast
+        rows = sorted(set(rows))
+        first = 0
+        while first in rows:
+            first += 1
+        later = [r for r in rows if r > first]
+        skiprows = first or None
+        if later:
+            if call.has("nrows") or not keep_default_na:
+                raise ctx.todo("skiprows= a list beside nrows= or keep_default_na=False")
+            header_line = 0 if options.get("header", 0) is None else 1
+            dropped = [r - first - header_line for r in later]
+            options["skiprows_list"] = tuple(dropped)
     if skiprows is not None:
-        if not isinstance(skiprows, int):
-            raise ctx.todo("a list of rows to skip: filter them after the scan")
         kwargs["skip_rows"] = skiprows
         options["skiprows"] = skiprows
     nrows = call.const("nrows", None, None, kinds=(int,))
@@ -299,6 +318,11 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                        "spaces after a separator; porter removes them after a scan of text and "
                        "casts each column to the type pandas reads, which it knows with --data "
                        "only (for columns of numbers or text)")
+    if dropped and (not getattr(schema, "polars", None) or getattr(schema, "partial", False)
+                    or "" in schema.polars):  # type: ignore[union-attr]
+        raise ctx.todo("skiprows= a list of rows: pandas infers the column types from the rows "
+                       "it keeps; porter leaves the rows out after a scan of text and casts the "
+                       "columns to the types it reads from --data (columns of numbers or text)")
     if thousands is not None and (schema is None or getattr(schema, "partial", False)):
         raise ctx.todo(f"thousands={thousands!r}: Polars' reader has no thousands separator; "
                        "porter removes it from the columns pandas reads as numbers, which it "
@@ -398,13 +422,15 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
             ctx.lower("nrows: the scan is told the types of the rows pandas reads; Polars' "
                       "reader also parses some rows past them, and a value there that does "
                       "not fit those types (True/False) stops the read", 0.9)
-        if skip_spaces and not all(t.text in TEXT_CASTS for t in types.values()):
-            raise ctx.todo("skipinitialspace=True beside a column of a type porter does not cast "
-                           "from text as the reader reads it (True/False)")
+        if (skip_spaces or dropped) and not (all(t.text in TEXT_CASTS for t in types.values())
+                                             and decimal == "."):
+            raise ctx.todo(("skipinitialspace=True" if skip_spaces else "skiprows= a list")
+                           + " beside a column of a type porter does not cast from text as the "
+                           "reader reads it (True/False), or decimal=\",\"")
         if all(t.text in TEXT_CASTS for t in types.values()) and decimal == ".":
             # (a cast of "1,5" to Float64 fails: a decimal comma is read by the typed scan)
             code = _scan_as_text(source.code, kwargs, types, bool(getattr(schema, "partial", False)),
-                                 decoded, strip_start=skip_spaces)
+                                 decoded, strip_start=skip_spaces, dropped=dropped)
         else:
             code = _scan(source.code, kwargs, decoded)
     else:
@@ -603,7 +629,8 @@ def _scan(source: Code, kwargs: dict[str, Any], encoding: str | None) -> Code:
 
 
 def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], partial: bool,
-                  encoding: str | None = None, strip_start: bool = False) -> Code:
+                  encoding: str | None = None, strip_start: bool = False,
+                  dropped: list[int] | None = None) -> Code:
     """A scan of every column as text, pandas' missing-value tokens made missing, and a cast to
     the types porter read from --data.
 
@@ -615,6 +642,11 @@ def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], 
     options = {k: v for k, v in kwargs.items() if k not in ("schema_overrides", "null_values")}
     nulls = kwargs.get("null_values")  # none with keep_default_na=False and no na_values
     code = _scan(source, options, encoding)
+    if dropped:
+        # read_csv(skiprows=[...]): the data rows pandas skips, counted as the scan reads them
+        # (before blank lines are left out: pandas counts them too)
+        code = code.method("filter", emit.unary("~", emit.pl("int_range", emit.pl("len"))
+                                                .method("is_in", list(dropped))))
     if strip_start:
         # read_csv(skipinitialspace=True): the spaces after each separator are not part of the
         # field (nor of a header name), in pandas; tabs are
