@@ -612,3 +612,50 @@ def test_read_csv_list_of_first_rows_skipped(tmp_path: Path) -> None:
 def test_read_csv_lists_of_rows_porter_does_not_skip_stay_todo(read: str) -> None:
     text = convert(f"import pandas as pd\ndf = {read}\n").converted_text
     assert "TODO(porter): pd.read_csv" in text
+
+
+# an orchard co-op's spraying log: yes/no and oui/non, pandas' own TRUE/false beside them, a
+# column of 1/0 (numbers stay numbers), a column with a text that is neither (stays text)
+SPRAYS = ('rang,traité,bio,passes,avis\n'
+          'R1,yes,oui,1,yes\n'
+          'R2,no,non,0,peut-être\n'
+          'R3,TRUE,Oui,1,no\n'
+          'R4,false,non,0,yes\n')
+
+
+@pytest.mark.parametrize("options", [
+    'true_values=["yes", "oui", "Oui"], false_values=["no", "non"]',
+    'true_values=["yes"], false_values=["no"]',
+    'true_values=["yes"], false_values=["no", "1"]',  # the column of 1/0 stays numbers
+    'true_values=["yes", "oui", "Oui"], false_values=["no", "non"], usecols=["bio", "rang"]',
+])
+def test_read_csv_true_and_false_texts(tmp_path: Path, options: str) -> None:
+    result = same_text(f'''
+        import pandas as pd
+        sprays = pd.read_csv("sprays.csv", {options})
+        print(sprays.dtypes.astype(str).tolist())
+        print(sprays[sprays.columns[-1]].tolist())
+        sprays.to_csv("out.csv", index=False)
+        ''', tmp_path, {"sprays.csv": SPRAYS})
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+    assert "replace_strict(" in result.converted_text
+
+
+def test_read_csv_true_and_false_texts_filter_rows(tmp_path: Path) -> None:
+    result = same_text('''
+        import pandas as pd
+        sprays = pd.read_csv("sprays.csv", true_values=["yes"], false_values=["no"])
+        done = sprays[sprays["traité"]]
+        print(len(done), done["rang"].tolist())
+        done.to_csv("out.csv", index=False)
+        ''', tmp_path, {"sprays.csv": SPRAYS})
+    assert "TODO(porter): pd.read_csv" not in result.converted_text
+
+
+@pytest.mark.parametrize("read", [
+    'pd.read_csv("a.csv", true_values=["yes"])',  # without --data
+    'pd.read_csv("a.csv", true_values=["x"], false_values=["x"])',
+])
+def test_read_csv_true_and_false_texts_porter_does_not_read_stay_todo(read: str) -> None:
+    text = convert(f"import pandas as pd\ndf = {read}\n").converted_text
+    assert "TODO(porter): pd.read_csv" in text

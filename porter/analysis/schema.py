@@ -80,6 +80,9 @@ class FileSchema(dict[str, str]):
     # read_csv(skipinitialspace=True): a quote after the spaces that follow a separator, where
     # pandas starts a quoted field and Polars' reader keeps the spaces and the quotes as text
     spaced_quotes: bool = False
+    # read_csv(true_values=..., false_values=...): the text columns pandas reads as True/False
+    # (every value one of them or of pandas' own True/False texts); scanned as text here
+    bool_texts: tuple[str, ...] = ()
     # parquet: the columns pandas wrote with one of its nullable dtypes (Int64, boolean,
     # string, Float64), from the pandas metadata of the file, which pandas' read_parquet
     # restores; {} for a file without any, None when not looked at
@@ -268,6 +271,7 @@ class SchemaReader:
                 schema, missing_ints = _missing_ints_as_floats(
                     file, schema, options, skip_blank=bool(blank_lines) and not empty_rows)
                 schema, wide = _unsigned_ints(file, schema, options)
+                bool_texts = _bool_texts(file, schema, options)
                 if options.get("keep_default_na") is False:
                     schema, emptied = _empty_fields_as_text(file, schema, options)
                     missing_ints -= emptied
@@ -291,6 +295,9 @@ class SchemaReader:
             found.first_texts, found.text_heads = _first_texts(file, schema, options)
             found.missing_ints = frozenset(missing_ints | padded_ints)
             found.thousands_unsure = unsure
+            found.bool_texts = tuple(bool_texts)
+            for name in bool_texts:  # scanned as text, then made True/False
+                found[name] = "bool"
             found.no_rows = _no_rows(file, options)
             found.implicit_index = _implicit_index(file, options)
             found.wide_ints = tuple(wide)
@@ -309,6 +316,28 @@ class SchemaReader:
 # pandas' nullable dtypes as its parquet metadata names them ("numpy_type")
 _NULLABLE_DTYPES = {"Int8", "Int16", "Int32", "Int64", "UInt8", "UInt16", "UInt32", "UInt64",
                     "boolean", "string", "Float32", "Float64"}
+
+
+# the texts pandas' CSV reader reads as True and False whatever true_values/false_values add
+PANDAS_TRUE = ("True", "TRUE", "true")
+PANDAS_FALSE = ("False", "FALSE", "false")
+
+
+def _bool_texts(file: Path, schema: Any, options: dict[str, Any]) -> list[str]:
+    """The text columns read_csv(true_values=..., false_values=...) reads as True/False: every
+    value that is not missing is one of those texts or pandas' own (measured: a column of
+    numbers stays numbers, a column with one other text stays text, values as written)."""
+    texts = set(options.get("true_values") or ()) | set(options.get("false_values") or ())
+    if not texts:
+        return []
+    texts |= {*PANDAS_TRUE, *PANDAS_FALSE}
+    candidates = [name for name, dtype in schema.items() if dtype == pl.String]
+    if not candidates or file.stat().st_size > SAMPLE_SCAN_LIMIT:
+        return []
+    row = pl.scan_csv(file, **scan_kwargs(options)).select(
+        *[pl.col(n).drop_nulls().is_in(sorted(texts)).all().alias(n) for n in candidates]
+    ).collect().row(0, named=True)
+    return [n for n in candidates if row[n]]
 
 
 def _empty_fields_as_text(file: Path, schema: Any, options: dict[str, Any]) \

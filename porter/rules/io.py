@@ -21,7 +21,7 @@ from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_DURATIONS_CONST
                                      POLARS_CSV_COMPRESSION, compression_of, is_number, is_url,
                                      na_value_numbers, na_value_texts,
                                      written_compression)
-from porter.analysis.schema import PADDING
+from porter.analysis.schema import PADDING, PANDAS_FALSE, PANDAS_TRUE
 from porter.rules.datetimes import GUESS_REASON, Strptime, formatted_parse, guessed_parse, strptime_port
 from porter.rules.strings import LIST_STR, list_repr
 from porter.translate import handover
@@ -104,6 +104,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     known = {"filepath_or_buffer", "sep", "delimiter", "usecols", "dtype", "parse_dates",
              "na_values", "keep_default_na", "nrows", "skiprows", "encoding", "header", "names",
              "decimal", "comment", "thousands", "skipinitialspace", "compression",
+             "true_values", "false_values",
              *READ_CSV_IGNORED}
     ctx.reject_unknown(call, *known, positional=1)
     source = call.arg("filepath_or_buffer", 0)
@@ -213,6 +214,16 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         # option: the scan reads every field as text, the spaces are removed, pandas' tokens
         # made missing and the columns cast to the types --data shows pandas reads
         options["skipinitialspace"] = True
+    bool_texts: dict[str, bool] = {}
+    for name, meaning in (("true_values", True), ("false_values", False)):
+        given = call.const(name, None, None, kinds=(list, tuple)) if call.has(name) else None
+        if given is not None and not all(isinstance(t, str) for t in given):
+            raise ctx.todo(f"{name}={given!r}: porter reads a list of texts")
+        if given:
+            options[name] = tuple(given)
+            for text in given:
+                if bool_texts.setdefault(text, meaning) is not meaning:
+                    raise ctx.todo(f"{text!r} is among both true_values and false_values")
     per_column = _na_values_per_column(call, ctx, keep_default_na)
     na_values = None if per_column is not None else call.const_values("na_values")
     nulls: object = emit.atom(NA_CONSTANT)
@@ -318,6 +329,10 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                        "spaces after a separator; porter removes them after a scan of text and "
                        "casts each column to the type pandas reads, which it knows with --data "
                        "only (for columns of numbers or text)")
+    if bool_texts and (schema is None or getattr(schema, "partial", False)):
+        raise ctx.todo("true_values= / false_values=: Polars' reader has no such option; porter "
+                       "makes True/False of the text columns whose every value is one of them, "
+                       "which it finds with --data")
     if dropped and (not getattr(schema, "polars", None) or getattr(schema, "partial", False)
                     or "" in schema.polars):  # type: ignore[union-attr]
         raise ctx.todo("skiprows= a list of rows: pandas infers the column types from the rows "
@@ -474,6 +489,18 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                   + (f" or the thousands separator {thousands!r}" if thousands is not None else "")
                   + " are read as text" + (", the separator removed," if thousands is not None else "")
                   + " and cast (--data showed every value of those columns is a number)", 0.95)
+    made_bool = list(getattr(schema, "bool_texts", ()))
+    if made_bool:
+        # true_values / false_values: pandas reads a column whose every value is one of them
+        # (or True/False as pandas writes them) as True/False; the scan read it as text
+        meaning = {**{t: True for t in PANDAS_TRUE}, **{t: False for t in PANDAS_FALSE},
+                   **bool_texts}
+        code = code.method("with_columns", *[
+            emit.col(unnamed.get(c, c)).method("replace_strict", meaning,
+                                                return_dtype=emit.atom("pl.Boolean"))
+            for c in made_bool])
+        for c in made_bool:
+            dtypes[unnamed.get(c, c)] = "bool"
     if emptied:
         # pandas empties these columns' own tokens before it infers their types
         exprs = []
