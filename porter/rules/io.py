@@ -86,12 +86,18 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     (infer_schema_length=None), sep, usecols in file order, dtype, parse_dates, na_values
     (one value, a list, or a dict of columns: see _emptied_columns; a number, given as text or
     not, also in its other spellings in float columns: see _numbers_missing), nrows, skiprows
-    (a count), decimal="," (decimal_comma), header=None / 0 with names=[...] (has_header, new_columns), dtype=str / "str" / object / "string" for every column (infer_schema_length=0).
-    Caveats: index_col, header=None without names (integer column names), converters, encodings
-    other than UTF-8, latin-1 and cp1252 (read eagerly by pl.read_csv(encoding=...).lazy()), a list of
-    skipped rows, keep_default_na=False, on_bad_lines="skip"/"warn" (pandas leaves out a row
+    (a count), decimal="," (decimal_comma), header=None / 0 with names=[...] (has_header, new_columns), dtype=str / "str" / object / "string" for every column (infer_schema_length=0),
+    comment= (comment_prefix), keep_default_na=False (empty_string_is_null=False),
+    compression= gzip / zstd / infer. With --data: header=None without names (the columns
+    "0", "1", ... as pandas' integer labels), thousands=, skipinitialspace=True, a list of
+    skiprows, true_values / false_values and a usecols function (read as text, then cast to
+    the types pandas infers, read from the sample).
+    Caveats: index_col, converters, encodings
+    other than UTF-8, latin-1 and cp1252 (read eagerly by pl.read_csv(encoding=...).lazy()),
+    on_bad_lines="skip"/"warn" (pandas leaves out a row
     with more fields than the header) and sep=None (pandas guesses the separator) are TODOs; na_values per column needs --data (or a
-    dtype= for those columns). With nrows, Polars still infers types from the whole file (0.9).
+    dtype= for those columns), and so do the options above. A comment after the data on a
+    line is a TODO with --data (pandas cuts it, Polars keeps it), 0.8 without. With nrows, Polars still infers types from the whole file (0.9).
     Integers beyond int64 beside a negative value or a blank (text in pandas, Int128 in
     Polars) are a TODO when --data shows them.
     parse_dates follows pandas' guess of one format from the first value (05/03/2024 month
