@@ -659,3 +659,20 @@ def test_read_csv_true_and_false_texts_filter_rows(tmp_path: Path) -> None:
 def test_read_csv_true_and_false_texts_porter_does_not_read_stay_todo(read: str) -> None:
     text = convert(f"import pandas as pd\ndf = {read}\n").converted_text
     assert "TODO(porter): pd.read_csv" in text
+
+
+@pytest.mark.parametrize(("text", "options"), [
+    ('phare, gardé, nuits\nKéréon, True, 3\nAr-Men, FALSE,  4\nJument, , 5\n',
+     "skipinitialspace=True"),
+    ('phare,gardé,nuits\nKéréon,True,3\nsous-total,oui,x\nAr-Men,false,4\n', "skiprows=[2]"),
+])
+def test_read_csv_true_false_column_read_as_text_and_cast(tmp_path: Path, text: str,
+                                                          options: str) -> None:
+    # a Boolean column scanned as text is made True/False as the reader reads it
+    result = same_text(f'''
+        import pandas as pd
+        phares = pd.read_csv("phares.csv", {options})
+        print(phares.dtypes.astype(str).tolist(), phares["gardé"].tolist())
+        phares.to_csv("out.csv", index=False)
+        ''', tmp_path, {"phares.csv": text})
+    assert "TODO(porter): pd.read_csv" not in result.converted_text

@@ -443,12 +443,13 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
             ctx.lower("nrows: the scan is told the types of the rows pandas reads; Polars' "
                       "reader also parses some rows past them, and a value there that does "
                       "not fit those types (True/False) stops the read", 0.9)
-        if (skip_spaces or dropped) and not (all(t.text in TEXT_CASTS for t in types.values())
+        text_casts = TEXT_CASTS + (("pl.Boolean",) if skip_spaces or dropped else ())
+        if (skip_spaces or dropped) and not (all(t.text in text_casts for t in types.values())
                                              and decimal == "."):
             raise ctx.todo(("skipinitialspace=True" if skip_spaces else "skiprows= a list")
                            + " beside a column of a type porter does not cast from text as the "
-                           "reader reads it (True/False), or decimal=\",\"")
-        if all(t.text in TEXT_CASTS for t in types.values()) and decimal == ".":
+                           "reader reads it, or decimal=\",\"")
+        if all(t.text in text_casts for t in types.values()) and decimal == ".":
             # (a cast of "1,5" to Float64 fails: a decimal comma is read by the typed scan)
             code = _scan_as_text(source.code, kwargs, types, bool(getattr(schema, "partial", False)),
                                  decoded, strip_start=skip_spaces, dropped=dropped)
@@ -690,7 +691,15 @@ def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], 
             "with_columns",
             emit.pl("when", emit.unary("~", emit.atom("pl.all()").method("is_in", nulls)))
             .method("then", emit.atom("pl.all()")))
-    casts: dict[Any, Code] = {c: t for c, t in types.items() if t.text != "pl.String"}
+    casts: dict[Any, Code] = {c: t for c, t in types.items() if t.text not in ("pl.String", "pl.Boolean")}
+    flags = [c for c, t in types.items() if t.text == "pl.Boolean"]
+    if flags:
+        # True/False as the reader reads a Boolean column: "true"/"false" in any case (a
+        # column with another text is not Boolean in the types from --data)
+        code = code.method("with_columns", emit.call("pl.col", *flags).attr("str")
+                           .method("to_lowercase")
+                           .method("replace_strict", {"true": True, "false": False},
+                                   return_dtype=emit.atom("pl.Boolean")))
     if partial:
         by_type: dict[str, list[str]] = {}
         for column, kind in casts.items():
