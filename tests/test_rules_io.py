@@ -500,8 +500,6 @@ def test_read_csv_na_values_per_column_with_dtype_matches_pandas(read: str, tall
                  id="a number key is a column position"),
     pytest.param('pd.read_csv("tallies.csv", na_values={"count": "comp"}, keep_default_na=False)',
                  "keep_default_na", id="keep_default_na=False with a dict"),
-    pytest.param('pd.read_csv("tallies.csv", na_values=["comp"], keep_default_na=False)',
-                 "keep_default_na", id="keep_default_na=False with a list"),
 ])
 def test_read_csv_na_values_per_column_todo(read: str, reason: str, tallies: Path) -> None:
     text = check_todo(f"import pandas as pd\ndf = {read}\n", "pd.read_csv")

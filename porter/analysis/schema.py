@@ -70,6 +70,19 @@ class FileSchema(dict[str, str]):
     # pandas' (\n, \r\n or a bare \r): "cr" when every line ends in a bare \r (read with
     # eol_char="\r"), "mixed" when bare \r and \n both end lines (no reader option does that)
     line_ends: str | None = None
+    # read_csv(comment="#"): the character appears outside quotes after the start of a line
+    # (1,2 # note, or after spaces), where pandas cuts the line and Polars' comment_prefix,
+    # which skips whole lines only, does not
+    trailing_comments: bool = False
+    # read_csv(thousands=","): text columns whose numbers porter cannot tell pandas' reading of
+    # (a separator doubled, "1,,234", an integer of more than 18 digits)
+    thousands_unsure: tuple[str, ...] = ()
+    # read_csv(skipinitialspace=True): a quote after the spaces that follow a separator, where
+    # pandas starts a quoted field and Polars' reader keeps the spaces and the quotes as text
+    spaced_quotes: bool = False
+    # read_csv(true_values=..., false_values=...): the text columns pandas reads as True/False
+    # (every value one of them or of pandas' own True/False texts); scanned as text here
+    bool_texts: tuple[str, ...] = ()
     # parquet: the columns pandas wrote with one of its nullable dtypes (Int64, boolean,
     # string, Float64), from the pandas metadata of the file, which pandas' read_parquet
     # restores; {} for a file without any, None when not looked at
@@ -152,6 +165,22 @@ class SchemaReader:
                     return None
                 rest = {k: v for k, v in options.items() if k != "encoding"}
                 return self._read_decoded(reader, copy, rest)
+        if reader == "csv" and _gzipped(file):
+            # a .gz file: Polars' scan decompresses it, and the helpers below, which read the
+            # file's lines themselves (blank lines, line ends, comments), read a plain copy
+            import gzip
+            import shutil
+            import tempfile
+            if file.stat().st_size > SAMPLE_SCAN_LIMIT:
+                return None
+            with tempfile.TemporaryDirectory() as folder:
+                copy = Path(folder) / "decompressed.csv"
+                try:
+                    with gzip.open(file, "rb") as packed, copy.open("wb") as plain:
+                        shutil.copyfileobj(packed, plain)
+                except (OSError, EOFError):
+                    return None
+                return self._read_decoded(reader, copy, options)
         return self._read_decoded(reader, file, options)
 
     def _read_decoded(self, reader: str, file: Path, options: dict[str, Any]) -> dict[str, str] | None:
@@ -163,6 +192,8 @@ class SchemaReader:
                 return found
             if ends == "cr":  # the helpers below read it with eol_char="\r" (scan_kwargs)
                 options = {**options, "lineterminator": "\r"}
+        if reader == "csv" and (options.get("skipinitialspace") or options.get("skiprows_list")):
+            return self._read_stripped(file, options)
         if reader == "csv" and isinstance(options.get("nrows"), int):
             # pandas infers the types of read_csv(nrows=N) from the N rows it reads: porter
             # reads the types of those rows only, from a copy of the file cut after them
@@ -173,6 +204,56 @@ class SchemaReader:
                     return None
                 return self._read_file(reader, head, options)
         return self._read_file(reader, file, options)
+
+    def _read_stripped(self, file: Path, options: dict[str, Any]) -> dict[str, str] | None:
+        """read_csv(skipinitialspace=True), or skiprows= a list of rows: the schema of the
+        file as pandas reads it once the spaces after each separator are gone and the rows
+        skipped, read from a copy without them (the values and the header names, as read_csv's
+        scan removes them; the lines skipped, comments and the rows past nrows left out).
+        `skiprows_list` holds the positions of the data rows to leave out as the scan counts
+        them (a blank line is one)."""
+        import tempfile
+
+        if file.stat().st_size > SAMPLE_SCAN_LIMIT or compression_of(str(file)):
+            return None
+        strip = bool(options.get("skipinitialspace"))
+        spaced = _spaced_quotes(file, options.get("sep", ",")) if strip else False
+        if spaced is None:
+            return None
+        if spaced:  # pandas starts a quoted field after the spaces, Polars' reader does not
+            found = FileSchema()
+            found.spaced_quotes = True
+            return found
+        read = {k: v for k, v in options.items() if k in ("sep", "nrows", "skiprows", "comment",
+                                                          "lineterminator", "header", "names",
+                                                          "number_names")}
+        kwargs = {**scan_kwargs(read), "null_values": None, "infer_schema_length": 0}
+        if "nrows" in read:
+            kwargs["n_rows"] = read["nrows"]
+        blank_lines, empty_rows = _blank_lines(file, scan_kwargs(options))
+        try:
+            frame = pl.scan_csv(file, **kwargs)
+            if options.get("skiprows_list"):
+                frame = frame.filter(~pl.int_range(pl.len()).is_in(list(options["skiprows_list"])))
+            if blank_lines and not empty_rows:  # blank lines, which pandas skips
+                frame = frame.filter(~pl.all_horizontal(pl.all().is_null()))
+            if strip:
+                frame = frame.rename(lambda name: name.lstrip(" ")).with_columns(
+                    pl.all().str.strip_chars_start(" "))
+            table = frame.collect()
+        except (pl.exceptions.PolarsError, OSError, ValueError):
+            return None
+        rest = {k: v for k, v in options.items()
+                if k not in (*read, "skipinitialspace", "skiprows_list")}
+        if "sep" in options:
+            rest["sep"] = options["sep"]
+        with tempfile.TemporaryDirectory() as folder:
+            copy = Path(folder) / "stripped.csv"
+            table.write_csv(copy, separator=options.get("sep", ","))
+            found = self._read_file("csv", copy, rest)
+        if isinstance(found, FileSchema):
+            found.blank_lines, found.empty_rows = blank_lines, empty_rows
+        return found
 
     def _read_file(self, reader: str, file: Path, options: dict[str, Any]) -> dict[str, str] | None:
         if reader == "csv" and _implicit_index(file, options):
@@ -185,10 +266,16 @@ class SchemaReader:
             if reader == "csv":
                 schema = pl.scan_csv(file, **scan_kwargs(options)).collect_schema()
                 blank_lines, empty_rows = _blank_lines(file, scan_kwargs(options))
+                unsure = _thousands_unsure(file, schema, options)
                 schema, padded, padded_ints = _text_read_as_numbers(file, schema, options)
                 schema, missing_ints = _missing_ints_as_floats(
                     file, schema, options, skip_blank=bool(blank_lines) and not empty_rows)
                 schema, wide = _unsigned_ints(file, schema, options)
+                bool_texts = _bool_texts(file, schema, options)
+                if options.get("keep_default_na") is False:
+                    schema, emptied = _empty_fields_as_text(file, schema, options)
+                    missing_ints -= emptied
+                    padded = {k: v for k, v in padded.items() if k not in emptied}
             elif reader == "parquet":
                 schema = pl.scan_parquet(file).collect_schema()
             else:
@@ -207,11 +294,18 @@ class SchemaReader:
             found.blank_lines, found.empty_rows = blank_lines, empty_rows
             found.first_texts, found.text_heads = _first_texts(file, schema, options)
             found.missing_ints = frozenset(missing_ints | padded_ints)
+            found.thousands_unsure = unsure
+            found.bool_texts = tuple(bool_texts)
+            for name in bool_texts:  # scanned as text, then made True/False
+                found[name] = "bool"
             found.no_rows = _no_rows(file, options)
             found.implicit_index = _implicit_index(file, options)
             found.wide_ints = tuple(wide)
             found.typed_categories = _typed_categories(file, options)
             found.line_ends = "cr" if options.get("lineterminator") == "\r" else None
+            if options.get("comment"):
+                found.trailing_comments = _trailing_comments(file, options["comment"],
+                                                             options.get("quotechar", '"'))
             if found.no_rows:
                 found.polars = None
         if reader == "parquet":
@@ -222,6 +316,56 @@ class SchemaReader:
 # pandas' nullable dtypes as its parquet metadata names them ("numpy_type")
 _NULLABLE_DTYPES = {"Int8", "Int16", "Int32", "Int64", "UInt8", "UInt16", "UInt32", "UInt64",
                     "boolean", "string", "Float32", "Float64"}
+
+
+# the texts pandas' CSV reader reads as True and False whatever true_values/false_values add
+PANDAS_TRUE = ("True", "TRUE", "true")
+PANDAS_FALSE = ("False", "FALSE", "false")
+
+
+def _bool_texts(file: Path, schema: Any, options: dict[str, Any]) -> list[str]:
+    """The text columns read_csv(true_values=..., false_values=...) reads as True/False: every
+    value that is not missing is one of those texts or pandas' own (measured: a column of
+    numbers stays numbers, a column with one other text stays text, values as written)."""
+    texts = set(options.get("true_values") or ()) | set(options.get("false_values") or ())
+    if not texts:
+        return []
+    texts |= {*PANDAS_TRUE, *PANDAS_FALSE}
+    candidates = [name for name, dtype in schema.items() if dtype == pl.String]
+    if not candidates or file.stat().st_size > SAMPLE_SCAN_LIMIT:
+        return []
+    row = pl.scan_csv(file, **scan_kwargs(options)).select(
+        *[pl.col(n).drop_nulls().is_in(sorted(texts)).all().alias(n) for n in candidates]
+    ).collect().row(0, named=True)
+    return [n for n in candidates if row[n]]
+
+
+def _empty_fields_as_text(file: Path, schema: Any, options: dict[str, Any]) \
+        -> tuple[dict[str, Any], set[str]]:
+    """read_csv(keep_default_na=False): the schema with each column of numbers that holds an
+    empty field typed text, as pandas reads it (the field is "" then, not NaN; Polars' reader
+    reads a missing number), and the names of those columns."""
+    numbers = [name for name, dtype in schema.items() if dtype.is_numeric()]
+    found = dict(schema)
+    if not numbers:
+        return found, set()
+    kwargs = {**scan_kwargs(options), "infer_schema_length": 0}
+    kwargs.pop("schema_overrides", None)
+    row = pl.scan_csv(file, **kwargs).select(
+        *[(pl.col(n) == "").any().alias(n) for n in numbers]).collect().row(0, named=True)
+    emptied = {n for n in numbers if row[n]}
+    for name in emptied:
+        found[name] = pl.String
+    return found, emptied
+
+
+def _gzipped(file: Path) -> bool:
+    """Whether the file is gzip data (its first two bytes), as Polars' scan tells it."""
+    try:
+        with file.open("rb") as handle:
+            return handle.read(2) == b"\x1f\x8b"
+    except OSError:
+        return False
 
 
 def _pandas_nullable(file: Path) -> dict[str, str] | None:
@@ -255,10 +399,14 @@ def _first_rows(file: Path, head: Path, options: dict[str, Any]) -> bool:
     kept = int(options.get("skiprows") or 0)
     taken = 0
 
+    comment = options.get("comment")
+
     def feed():  # counts the lines the csv reader takes
         nonlocal kept
         while kept < len(lines):
             kept += 1
+            if comment and lines[kept - 1].startswith(comment):
+                continue  # a comment line (read_csv(comment=...)): no row
             yield lines[kept - 1]
 
     rows = csv.reader(feed(), delimiter=options.get("sep", ","))
@@ -323,6 +471,60 @@ def _line_ends(file: Path) -> str | None:
     return "mixed" if b"\n" in data else "cr"
 
 
+def _trailing_comments(file: Path, comment: str, quote: str) -> bool:
+    """Whether `comment` appears outside quoted fields anywhere but at the start of a line (a
+    line starting with it is skipped whole, by pandas and by Polars' comment_prefix alike);
+    True when the file is not looked at (the careful answer)."""
+    if file.stat().st_size > SAMPLE_SCAN_LIMIT or compression_of(str(file)):
+        return True
+    try:
+        text = file.read_text(encoding="utf-8-sig", errors="replace")
+    except OSError:
+        return True
+    quoted, at_start = False, True
+    skipping = False  # inside a comment line
+    for char in text:
+        if char in "\r\n" and not quoted:
+            at_start, skipping = True, False
+            continue
+        if skipping:
+            continue
+        if at_start and char == comment:
+            skipping, at_start = True, False
+            continue
+        at_start = False
+        if char == quote:
+            quoted = not quoted
+        elif char == comment and not quoted:
+            return True
+    return False
+
+
+def _spaced_quotes(file: Path, separator: str, quote: str = '"') -> bool | None:
+    """Whether a field starts with spaces and then a quote (`a, "b, c"`), outside quoted
+    fields; None when the file is not read."""
+    try:
+        text = file.read_text(encoding="utf-8-sig", errors="replace")
+    except OSError:
+        return None
+    quoted, spaces, at_field = False, 0, True
+    for char in text:
+        if quoted:
+            if char == quote:  # its end, or the first of a doubled quote (read on as text)
+                quoted, at_field, spaces = False, False, 0
+            continue
+        if at_field and char == " ":
+            spaces += 1
+            continue
+        if char == quote:
+            if at_field and spaces:
+                return True
+            quoted = True
+        at_field = char in (separator, "\n", "\r")
+        spaces = 0
+    return False
+
+
 def _implicit_index(file: Path, options: dict[str, Any]) -> bool:
     """Whether the first data row has one field more than the header, where pandas takes
     the first column as the index (Polars' reader fails on such a row)."""
@@ -335,6 +537,8 @@ def _implicit_index(file: Path, options: dict[str, Any]) -> bool:
     try:
         with file.open(encoding="utf-8-sig", errors="replace", newline="") as handle:
             lines = itertools.islice(handle, int(options.get("skiprows") or 0), None)
+            if options.get("comment"):  # lines skipped as comments are no header nor row
+                lines = (line for line in lines if not line.startswith(options["comment"]))
             rows = (r for r in csv.reader(lines, delimiter=options.get("sep", ",")) if r)
             header, first = next(rows, None), next(rows, None)
     except (OSError, csv.Error):
@@ -426,6 +630,38 @@ PLAIN_FLOAT = r"^-?([0-9]+\.?[0-9]*|\.[0-9]+)([eE][+-]?[0-9]+)?$"
 PADDING = " \t"
 
 
+def _with_thousands(pattern: str, separator: str) -> str:
+    """PADDED_INT or PADDED_FLOAT allowing pandas' thousands separator in the whole part of the
+    number: once between two digits, or after the last one ("1,234", "1,2,3", "5,", "1,.5",
+    "1,e3"; measured on pandas 3.1: ",5" and "1,,234" in a float column stay text)."""
+    sep = f"\\x{{{ord(separator):X}}}"
+    whole = f"[0-9](?:{sep}?[0-9])*{sep}?"
+    if pattern == PADDED_INT:
+        return f"^[+-]?{whole}$"
+    return f"^[+-]?({whole}(\\.[0-9]*)?|\\.[0-9]+)([eE][+-]?[0-9]+)?$"
+
+
+def _thousands_unsure(file: Path, schema: Any, options: dict[str, Any]) -> tuple[str, ...]:
+    """The text columns where read_csv(thousands=...) may read numbers porter does not tell:
+    a value with the separator doubled after a digit ("1,,234": an integer to pandas in a column
+    of integers, text in one of floats), or an integer of more than 18 digits (int64 to pandas,
+    float here)."""
+    separator = options.get("thousands")
+    if not separator or file.stat().st_size > SAMPLE_SCAN_LIMIT:
+        return ()
+    texts = [name for name, dtype in schema.items() if dtype == pl.String]
+    if not texts:
+        return ()
+    sep = f"\\x{{{ord(separator):X}}}"
+    whole = f"^[+-]?[0-9](?:{sep}?[0-9])*{sep}?$"
+    row = pl.scan_csv(file, **scan_kwargs(options)).select(
+        *[(pl.col(n).str.contains(f"[0-9]{sep}{sep}")
+           | (pl.col(n).str.strip_chars(PADDING).str.contains(whole)
+              & (pl.col(n).str.replace_all("[^0-9]", "").str.len_chars() > 18))).any()
+          .alias(n) for n in texts]).collect().row(0, named=True)
+    return tuple(n for n in texts if row[n])
+
+
 def _text_read_as_numbers(file: Path, schema: Any, options: dict[str, Any]) \
         -> tuple[dict[str, Any], dict[str, Any], set[str]]:
     """The schema with the text columns pandas reads as numbers typed as pandas types them,
@@ -448,13 +684,22 @@ def _text_read_as_numbers(file: Path, schema: Any, options: dict[str, Any]) \
         return found, {}, set()
     frame = pl.scan_csv(file, **scan_kwargs(options))
     stripped = [pl.col(name).str.strip_chars(PADDING) for name in texts]
-    padded_float, plain_float = PADDED_FLOAT, PLAIN_FLOAT
+    padded_int, padded_float, plain_float = PADDED_INT, PADDED_FLOAT, PLAIN_FLOAT
+    if options.get("thousands"):  # "1,234": a number to pandas, text to Polars
+        padded_int, padded_float = (_with_thousands(p, options["thousands"])
+                                    for p in (PADDED_INT, PADDED_FLOAT))
+        # at most 18 digits for an integer, as PADDED_INT (_thousands_unsure finds longer ones)
+        stripped_ints = [s.str.contains(padded_int)
+                         & (s.str.replace_all("[^0-9]", "").str.len_chars() <= 18)
+                         for s in stripped]
+    else:
+        stripped_ints = [s.str.contains(padded_int) for s in stripped]
     if options.get("decimal") == ",":  # "1,5" is a number to pandas then, "1.5" text
-        padded_float, plain_float = (p.replace(r"\.", ",") for p in (PADDED_FLOAT, PLAIN_FLOAT))
+        padded_float, plain_float = (p.replace(r"\.", ",") for p in (padded_float, PLAIN_FLOAT))
     row = frame.select(
         pl.len().alias("\0rows"),
         *[pl.col(name).null_count().alias(f"\0nulls{i}") for i, name in enumerate(texts)],
-        *[s.str.contains(PADDED_INT).all().alias(f"\0int{i}") for i, s in enumerate(stripped)],
+        *[s.all().alias(f"\0int{i}") for i, s in enumerate(stripped_ints)],
         *[s.str.contains(padded_float).all().alias(f"\0float{i}") for i, s in enumerate(stripped)],
         *[(pl.col(name).str.contains(INFINITY) | s.str.contains(padded_float)).all()
           .alias(f"\0inf{i}") for i, (name, s) in enumerate(zip(texts, stripped))],

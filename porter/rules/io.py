@@ -21,7 +21,7 @@ from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_DURATIONS_CONST
                                      POLARS_CSV_COMPRESSION, compression_of, is_number, is_url,
                                      na_value_numbers, na_value_texts,
                                      written_compression)
-from porter.analysis.schema import PADDING
+from porter.analysis.schema import PADDING, PANDAS_FALSE, PANDAS_TRUE
 from porter.rules.datetimes import GUESS_REASON, Strptime, formatted_parse, guessed_parse, strptime_port
 from porter.rules.strings import LIST_STR, list_repr
 from porter.translate import handover
@@ -86,12 +86,18 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     (infer_schema_length=None), sep, usecols in file order, dtype, parse_dates, na_values
     (one value, a list, or a dict of columns: see _emptied_columns; a number, given as text or
     not, also in its other spellings in float columns: see _numbers_missing), nrows, skiprows
-    (a count), decimal="," (decimal_comma), header=None / 0 with names=[...] (has_header, new_columns), dtype=str / "str" / object / "string" for every column (infer_schema_length=0).
-    Caveats: index_col, header=None without names (integer column names), converters, encodings
-    other than UTF-8, latin-1 and cp1252 (read eagerly by pl.read_csv(encoding=...).lazy()), a list of
-    skipped rows, keep_default_na=False, on_bad_lines="skip"/"warn" (pandas leaves out a row
+    (a count), decimal="," (decimal_comma), header=None / 0 with names=[...] (has_header, new_columns), dtype=str / "str" / object / "string" for every column (infer_schema_length=0),
+    comment= (comment_prefix), keep_default_na=False (empty_string_is_null=False),
+    compression= gzip / zstd / infer. With --data: header=None without names (the columns
+    "0", "1", ... as pandas' integer labels), thousands=, skipinitialspace=True, a list of
+    skiprows, true_values / false_values and a usecols function (read as text, then cast to
+    the types pandas infers, read from the sample).
+    Caveats: index_col, converters, encodings
+    other than UTF-8, latin-1 and cp1252 (read eagerly by pl.read_csv(encoding=...).lazy()),
+    on_bad_lines="skip"/"warn" (pandas leaves out a row
     with more fields than the header) and sep=None (pandas guesses the separator) are TODOs; na_values per column needs --data (or a
-    dtype= for those columns). With nrows, Polars still infers types from the whole file (0.9).
+    dtype= for those columns), and so do the options above. A comment after the data on a
+    line is a TODO with --data (pandas cuts it, Polars keeps it), 0.8 without. With nrows, Polars still infers types from the whole file (0.9).
     Integers beyond int64 beside a negative value or a blank (text in pandas, Int128 in
     Polars) are a TODO when --data shows them.
     parse_dates follows pandas' guess of one format from the first value (05/03/2024 month
@@ -103,11 +109,13 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     """
     known = {"filepath_or_buffer", "sep", "delimiter", "usecols", "dtype", "parse_dates",
              "na_values", "keep_default_na", "nrows", "skiprows", "encoding", "header", "names",
-             "decimal",
+             "decimal", "comment", "thousands", "skipinitialspace", "compression",
+             "true_values", "false_values",
              *READ_CSV_IGNORED}
     ctx.reject_unknown(call, *known, positional=1)
     source = call.arg("filepath_or_buffer", 0)
     check_source(source, ctx)
+    _compression(call, source, ctx)
     if _paths(source) is None and _names_a_loop_variable(call, ctx):
         # one of many files (a loop's or a comprehension's): Polars infers the types of each
         # file porter never saw, and its inference differs from pandas' (a day's file with an
@@ -120,11 +128,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower("the file is named when the script runs (porter never saw it): Polars infers "
                   "its types over the whole file as pandas does, but reads numbers written "
                   "\" 5\" or \"+3\", an all-blank column and a file of a header only as text", 0.9)
-    if call.const("keep_default_na", None, True, kinds=(bool,)) is False:
-        # pandas then reads an empty field as "" (a column of numbers with an empty field
-        # becomes text), where Polars reads a missing number
-        raise ctx.todo("keep_default_na=False: pandas keeps empty fields as \"\" (a number "
-                       "column with one becomes text), Polars reads them as missing")
+    keep_default_na = call.const("keep_default_na", None, True, kinds=(bool,)) is not False
     bad_lines = call.const("on_bad_lines", None, "error", kinds=(str,)) if call.has("on_bad_lines") else "error"
     if bad_lines != "error":
         # pandas leaves out a row with more fields than the header (and warns with "warn");
@@ -161,6 +165,19 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         decoded = encoding
         options["encoding"] = spelled
     _header_and_names(call, ctx, kwargs, options)
+    comment = call.const("comment", None, None, kinds=(str, type(None))) if call.has("comment") else None
+    if comment is not None:
+        if len(comment) != 1:
+            raise ctx.todo(f"comment={comment!r}: pandas takes a single character")
+        if call.has("skiprows"):
+            # pandas skips the lines first and then the comments; Polars' skip_rows counts
+            # otherwise beside comment_prefix (measured: it reads a skipped header)
+            raise ctx.todo("comment= beside skiprows=: Polars' reader counts the skipped rows "
+                           "otherwise than pandas beside a comment prefix")
+        # a line starting with the character is skipped by both (in a quoted field it is
+        # text in both); one after data on a line is looked for below (--data)
+        kwargs["comment_prefix"] = comment
+        options["comment"] = comment
     decimal = call.const("decimal", None, ".", kinds=(str,)) if call.has("decimal") else "."
     if decimal not in (".", ","):
         raise ctx.todo(f"decimal={call.arg('decimal').code.text}: Polars' reader reads a "
@@ -173,14 +190,65 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                       "are read as decimals, as in pandas", 0.95)
         kwargs["decimal_comma"] = True
         options["decimal"] = ","
-    per_column = _na_values_per_column(call, ctx)
+    thousands = call.const("thousands", None, None, kinds=(str, type(None))) \
+        if call.has("thousands") else None
+    if thousands is not None:
+        if len(thousands) != 1 or thousands.isalnum():
+            raise ctx.todo(f"thousands={thousands!r}: porter reads one character that is not "
+                           "a letter or a digit")
+        if thousands == decimal:
+            raise ctx.todo(f"thousands={thousands!r} is the decimal character too: pandas "
+                           "reads \"1.5\" as 15")
+        if call.has("dtype"):
+            # pandas strips the separator from a column given a number dtype too, Polars'
+            # reader fails on "1,234" told it is Int64
+            raise ctx.todo("thousands= beside dtype=: Polars' reader does not read \"1,234\" "
+                           "as a number when told the column's type")
+        # Polars' reader has no thousands separator: with --data porter finds the columns
+        # pandas reads as numbers ("1,234", quoted beside the comma separator), reads them as
+        # text, removes the separator and casts them (the `padded` columns below)
+        options["thousands"] = thousands
+    skip_spaces = call.const("skipinitialspace", None, False, kinds=(bool,)) \
+        if call.has("skipinitialspace") else False
+    if skip_spaces:
+        if options.get("header", 0) is None or "names" in options:
+            raise ctx.todo("skipinitialspace=True beside header=None or names=")
+        if decimal != ".":
+            raise ctx.todo("skipinitialspace=True beside decimal=\",\"")
+        # pandas removes the spaces after each separator (and before a header name) before it
+        # reads the field: a field " NA" is missing, " 5" a number. Polars' reader has no such
+        # option: the scan reads every field as text, the spaces are removed, pandas' tokens
+        # made missing and the columns cast to the types --data shows pandas reads
+        options["skipinitialspace"] = True
+    bool_texts: dict[str, bool] = {}
+    for name, meaning in (("true_values", True), ("false_values", False)):
+        given = call.const(name, None, None, kinds=(list, tuple)) if call.has(name) else None
+        if given is not None and not all(isinstance(t, str) for t in given):
+            raise ctx.todo(f"{name}={given!r}: porter reads a list of texts")
+        if given:
+            options[name] = tuple(given)
+            for text in given:
+                if bool_texts.setdefault(text, meaning) is not meaning:
+                    raise ctx.todo(f"{text!r} is among both true_values and false_values")
+    per_column = _na_values_per_column(call, ctx, keep_default_na)
     na_values = None if per_column is not None else call.const_values("na_values")
     nulls: object = emit.atom(NA_CONSTANT)
     if na_values is not None:
         extra = na_value_texts(na_values)
         nulls = emit.binop(emit.atom(NA_CONSTANT), "+", [v for v in extra if v not in PANDAS_NA_TOKENS])
         options["na_values"] = extra
-    kwargs["null_values"] = nulls
+    if not keep_default_na:
+        # pandas' own tokens are not missing then, nor is an empty field (""): only the
+        # na_values given are. Polars' reader keeps "" with empty_string_is_null=False, but
+        # reads an empty field of a number column as missing where pandas makes the column
+        # text: with --data porter reads such columns as text (schema.py)
+        if skip_spaces:
+            raise ctx.todo("keep_default_na=False beside skipinitialspace=True")
+        nulls = na_value_texts(na_values) if na_values is not None else None
+        kwargs["empty_string_is_null"] = False
+        options["keep_default_na"] = False
+    if nulls is not None:
+        kwargs["null_values"] = nulls
     dtype = call.const("dtype", None, None) if call.has("dtype") and _const_dtype_dict(call) else None
     all_text = False
     if call.has("dtype") and dtype is None:
@@ -220,9 +288,28 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         kwargs["schema_overrides"] = overrides
     kwargs["infer_schema_length"] = 0 if all_text else None
     skiprows = call.const("skiprows", None, None, kinds=(int, list, tuple))
+    dropped: list[int] = []  # the data rows a list of skiprows leaves out, as the scan counts
+    if skiprows is not None and not isinstance(skiprows, int):
+        rows = list(skiprows)
+        if not all(isinstance(r, int) and not isinstance(r, bool) and r >= 0 for r in rows):
+            raise ctx.todo(f"skiprows={rows!r}: porter reads rows as numbers from 0")
+        # pandas counts the file's rows from 0 (the header line is 0; a blank line is a row, a
+        # quoted field over several lines one row): the first rows skipped one after the other
+        # are the scan's skip_rows, the others are left out after a scan of text, before
+        # the types --data shows pandas infers for what is left are cast
+        rows = sorted(set(rows))
+        first = 0
+        while first in rows:
+            first += 1
+        later = [r for r in rows if r > first]
+        skiprows = first or None
+        if later:
+            if call.has("nrows") or not keep_default_na:
+                raise ctx.todo("skiprows= a list beside nrows= or keep_default_na=False")
+            header_line = 0 if options.get("header", 0) is None else 1
+            dropped = [r - first - header_line for r in later]
+            options["skiprows_list"] = tuple(dropped)
     if skiprows is not None:
-        if not isinstance(skiprows, int):
-            raise ctx.todo("a list of rows to skip: filter them after the scan")
         kwargs["skip_rows"] = skiprows
         options["skiprows"] = skiprows
     nrows = call.const("nrows", None, None, kinds=(int,))
@@ -238,6 +325,51 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         if written is not None:
             overrides = {**_read_back_types(written, ctx), **overrides}
             kwargs["schema_overrides"] = overrides
+    if skip_spaces and getattr(schema, "spaced_quotes", False):
+        raise ctx.todo("skipinitialspace=True and a quoted field after spaces (a, \"b, c\"): "
+                       "pandas starts the quoted field after the spaces, Polars' reader keeps "
+                       "the spaces and the quotes as text (and splits the field at its comma)")
+    if skip_spaces and (not getattr(schema, "polars", None) or getattr(schema, "partial", False)
+                        or "" in schema.polars):  # type: ignore[union-attr]
+        raise ctx.todo("skipinitialspace=True: Polars' reader has no option to remove the "
+                       "spaces after a separator; porter removes them after a scan of text and "
+                       "casts each column to the type pandas reads, which it knows with --data "
+                       "only (for columns of numbers or text)")
+    if bool_texts and (schema is None or getattr(schema, "partial", False)):
+        raise ctx.todo("true_values= / false_values=: Polars' reader has no such option; porter "
+                       "makes True/False of the text columns whose every value is one of them, "
+                       "which it finds with --data")
+    if dropped and (not getattr(schema, "polars", None) or getattr(schema, "partial", False)
+                    or "" in schema.polars):  # type: ignore[union-attr]
+        raise ctx.todo("skiprows= a list of rows: pandas infers the column types from the rows "
+                       "it keeps; porter leaves the rows out after a scan of text and casts the "
+                       "columns to the types it reads from --data (columns of numbers or text)")
+    if thousands is not None and (schema is None or getattr(schema, "partial", False)):
+        raise ctx.todo(f"thousands={thousands!r}: Polars' reader has no thousands separator; "
+                       "porter removes it from the columns pandas reads as numbers, which it "
+                       "finds with --data (run with --data, or read those columns as text and "
+                       "remove it)")
+    for column in getattr(schema, "thousands_unsure", ()):
+        raise ctx.todo(f"thousands={thousands!r}: column {column!r} holds the separator doubled "
+                       "after a digit (\"1,,234\": a number to pandas in a column of integers, "
+                       "text in one of floats) or an integer of more than 18 digits")
+    if comment is not None and getattr(schema, "trailing_comments", False):
+        raise ctx.todo(f"comment={comment!r} after the data on a line (1,2 {comment} note), or "
+                       "after spaces: pandas cuts the line there, Polars' comment_prefix skips "
+                       "only lines that start with it and keeps the rest of this one in the last "
+                       "field")
+    if comment is not None and schema is None:
+        ctx.lower(f"comment={comment!r}: lines that start with it are skipped, as pandas skips "
+                  f"them; a comment after the data on a line (1,2 {comment} note) is cut off by "
+                  "pandas and kept in the last field by Polars (run with --data to have porter "
+                  "look)", 0.8)
+    if options.get("number_names"):
+        if schema is None or getattr(schema, "partial", False) or not schema:
+            raise ctx.todo("header=None without names=: pandas names the columns by the "
+                           "integers 0, 1, ...; porter names them \"0\", \"1\", ... when "
+                           "--data holds the file and shows how many there are")
+        # the scan names the columns as the schema reader named them ("0", "1", ...)
+        kwargs["new_columns"] = list(schema)
     if nrows is not None and getattr(schema, "polars", None) is None:
         # Polars infers column types from the whole file even when it reads n rows (and parses
         # past them), pandas only from the rows it reads.
@@ -311,10 +443,16 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
             ctx.lower("nrows: the scan is told the types of the rows pandas reads; Polars' "
                       "reader also parses some rows past them, and a value there that does "
                       "not fit those types (True/False) stops the read", 0.9)
-        if all(t.text in TEXT_CASTS for t in types.values()) and decimal == ".":
+        text_casts = TEXT_CASTS + (("pl.Boolean",) if skip_spaces or dropped else ())
+        if (skip_spaces or dropped) and not (all(t.text in text_casts for t in types.values())
+                                             and decimal == "."):
+            raise ctx.todo(("skipinitialspace=True" if skip_spaces else "skiprows= a list")
+                           + " beside a column of a type porter does not cast from text as the "
+                           "reader reads it, or decimal=\",\"")
+        if all(t.text in text_casts for t in types.values()) and decimal == ".":
             # (a cast of "1,5" to Float64 fails: a decimal comma is read by the typed scan)
             code = _scan_as_text(source.code, kwargs, types, bool(getattr(schema, "partial", False)),
-                                 decoded)
+                                 decoded, strip_start=skip_spaces, dropped=dropped)
         else:
             code = _scan(source.code, kwargs, decoded)
     else:
@@ -326,7 +464,14 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     if unnamed:  # an empty header (a written index): pandas names it by its position
         code = code.method("rename", unnamed)
         schema = {unnamed.get(c, c): kind for c, kind in schema.items()}  # type: ignore[union-attr]
+    if not keep_default_na and schema is None:
+        ctx.lower("keep_default_na=False: an empty field in a column of numbers makes pandas "
+                  "read the column as text (\"\"), Polars reads a missing number (run with "
+                  "--data to have porter look)", 0.8)
     if getattr(schema, "blank_lines", False):
+        if not keep_default_na:
+            raise ctx.todo("keep_default_na=False and blank lines: pandas skips them, Polars "
+                           "reads each as a row of empty texts")
         if getattr(schema, "empty_rows", False):
             raise ctx.todo("the file has blank lines, which pandas skips and Polars reads as rows "
                            "of missing values, beside lines of only spaces or of empty fields, "
@@ -339,13 +484,30 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         # Polars text; stripped and cast as pandas types them (--data showed every value fits)
         stripped = {c: emit.col(unnamed.get(c, c)).attr("str").method("strip_chars", PADDING)
                     for c in padded}
+        if thousands is not None:  # "1,234" -> "1234" (--data showed where it is one number)
+            stripped = {c: e.attr("str").method("replace_all", thousands, "", literal=True)
+                        for c, e in stripped.items()}
         if decimal == ",":  # "1,5" -> "1.5", which the cast reads (decimal=",")
             stripped = {c: e.attr("str").method("replace", ",", ".", literal=True)
                         for c, e in stripped.items()}
         code = code.method("with_columns", *[
             stripped[c].method("cast", emit.atom(t)) for c, t in padded.items()])
-        ctx.lower("numbers written with spaces around them or a plus sign are read as text and "
-                  "cast (--data showed every value of those columns is a number)", 0.95)
+        ctx.lower("numbers written with spaces around them or a plus sign"
+                  + (f" or the thousands separator {thousands!r}" if thousands is not None else "")
+                  + " are read as text" + (", the separator removed," if thousands is not None else "")
+                  + " and cast (--data showed every value of those columns is a number)", 0.95)
+    made_bool = list(getattr(schema, "bool_texts", ()))
+    if made_bool:
+        # true_values / false_values: pandas reads a column whose every value is one of them
+        # (or True/False as pandas writes them) as True/False; the scan read it as text
+        meaning = {**{t: True for t in PANDAS_TRUE}, **{t: False for t in PANDAS_FALSE},
+                   **bool_texts}
+        code = code.method("with_columns", *[
+            emit.col(unnamed.get(c, c)).method("replace_strict", meaning,
+                                                return_dtype=emit.atom("pl.Boolean"))
+            for c in made_bool])
+        for c in made_bool:
+            dtypes[unnamed.get(c, c)] = "bool"
     if emptied:
         # pandas empties these columns' own tokens before it infers their types
         exprs = []
@@ -367,9 +529,29 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                                 getattr(schema, "missing_ints", frozenset()))
     # pandas' read_csv makes plain numpy integers (float64 with a missing value) unless told
     frame = Frame(code, columns=columns, dtypes=tuple(dtypes.items()),
-                  nullable_ints=tuple(nullable.items()))
+                  nullable_ints=tuple(nullable.items()),
+                  # header=None without names=: pandas' labels are the integers 0, 1, ...
+                  number_labels=columns if options.get("number_names") and columns else ())
 
-    usecols = call.const_values("usecols", kinds=(str, int))
+    chooser = _usecols_function(call, ctx)
+    if chooser is not None:
+        # usecols=lambda c: ...: pandas calls it with each name of the header and keeps the
+        # columns it says yes to; porter calls it with the names --data shows
+        if frame.columns is None:
+            raise ctx.todo("usecols given as a function: porter calls it with the header's names, "
+                           "which it knows with --data only (or list the columns)")
+        try:
+            chosen = [c for c in frame.columns if chooser(c)]
+        except Exception as error:  # noqa: BLE001 - the script's function, on a header name
+            raise ctx.todo(f"usecols given as a function fails on a header name ({error})")
+        if not chosen:
+            raise ctx.todo("usecols given as a function keeps no column (pandas reads an empty frame)")
+        frame = _select_in_file_order(frame, chosen, ctx)
+        ctx.lower("usecols given as a function: called with the header of the --data file; a "
+                  "file with other columns gets these ones", 0.95)
+        usecols = None
+    else:
+        usecols = call.const_values("usecols", kinds=(str, int))
     if usecols is not None:
         frame = _select_in_file_order(frame, usecols, ctx)
     parse_dates = call.const("parse_dates", None, None, kinds=(bool, list, tuple))
@@ -424,10 +606,26 @@ def _header_and_names(call: PandasCall, ctx: RuleContext, kwargs: dict[str, obje
     if header == "infer":  # pandas: no header line when names are given, else the first line
         header = None if names is not None else 0
     if header is None and names is None:
-        # pandas names the columns 0, 1, ... (integers); Polars names must be text
-        # ("column_1"), and df[0] would select nothing
-        raise ctx.todo("header=None without names=: pandas names the columns by the integers "
-                       "0, 1, ...; give names=[...] so the columns have names Polars can carry")
+        # pandas labels the columns with the integers 0, 1, ...; Polars' names are text: the
+        # scan names them "0", "1", ... and the frame carries them as number labels, which a
+        # hand-over to pandas makes integers again (as for pd.DataFrame of rows). The count of
+        # columns comes from --data (read_csv sets new_columns from it).
+        for option in ("dtype", "usecols", "parse_dates", "converters"):
+            if call.has(option):
+                raise ctx.todo(f"header=None without names= beside {option}=: pandas names the "
+                               "columns by the integers 0, 1, ..., which porter does not read "
+                               f"in {option}=")
+        if call.has("na_values") and isinstance(call.const("na_values", None, None), dict):
+            raise ctx.todo("header=None without names= beside na_values per column: pandas "
+                           "names the columns by the integers 0, 1, ...")
+        if ctx.schema_lookup is None:
+            raise ctx.todo("header=None without names=: pandas names the columns by the "
+                           "integers 0, 1, ...; porter names them \"0\", \"1\", ... when "
+                           "--data shows how many there are (or give names=[...])")
+        kwargs["has_header"] = False
+        options["header"] = None
+        options["number_names"] = True
+        return
     if names is not None and len(set(names)) != len(names):
         raise ctx.todo("names= repeats a name (pandas refuses it)")
     if header is None:
@@ -465,7 +663,8 @@ def _scan(source: Code, kwargs: dict[str, Any], encoding: str | None) -> Code:
 
 
 def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], partial: bool,
-                  encoding: str | None = None) -> Code:
+                  encoding: str | None = None, strip_start: bool = False,
+                  dropped: list[int] | None = None) -> Code:
     """A scan of every column as text, pandas' missing-value tokens made missing, and a cast to
     the types porter read from --data.
 
@@ -475,12 +674,32 @@ def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], 
     Files of several layouts read by one call (`partial`) cast the columns each file has, as
     the typed scan's schema_overrides ignore the ones it lacks."""
     options = {k: v for k, v in kwargs.items() if k not in ("schema_overrides", "null_values")}
-    nulls = kwargs["null_values"]
-    code = _scan(source, options, encoding).method(
-        "with_columns",
-        emit.pl("when", emit.unary("~", emit.atom("pl.all()").method("is_in", nulls)))
-        .method("then", emit.atom("pl.all()")))
-    casts: dict[Any, Code] = {c: t for c, t in types.items() if t.text != "pl.String"}
+    nulls = kwargs.get("null_values")  # none with keep_default_na=False and no na_values
+    code = _scan(source, options, encoding)
+    if dropped:
+        # read_csv(skiprows=[...]): the data rows pandas skips, counted as the scan reads them
+        # (before blank lines are left out: pandas counts them too)
+        code = code.method("filter", emit.unary("~", emit.pl("int_range", emit.pl("len"))
+                                                .method("is_in", list(dropped))))
+    if strip_start:
+        # read_csv(skipinitialspace=True): the spaces after each separator are not part of the
+        # field (nor of a header name), in pandas; tabs are
+        code = code.method("rename", emit.atom('lambda name: name.lstrip(" ")')).method(
+            "with_columns", emit.atom("pl.all()").attr("str").method("strip_chars_start", " "))
+    if nulls is not None:
+        code = code.method(
+            "with_columns",
+            emit.pl("when", emit.unary("~", emit.atom("pl.all()").method("is_in", nulls)))
+            .method("then", emit.atom("pl.all()")))
+    casts: dict[Any, Code] = {c: t for c, t in types.items() if t.text not in ("pl.String", "pl.Boolean")}
+    flags = [c for c, t in types.items() if t.text == "pl.Boolean"]
+    if flags:
+        # True/False as the reader reads a Boolean column: "true"/"false" in any case (a
+        # column with another text is not Boolean in the types from --data)
+        code = code.method("with_columns", emit.call("pl.col", *flags).attr("str")
+                           .method("to_lowercase")
+                           .method("replace_strict", {"true": True, "false": False},
+                                   return_dtype=emit.atom("pl.Boolean")))
     if partial:
         by_type: dict[str, list[str]] = {}
         for column, kind in casts.items():
@@ -510,7 +729,8 @@ def _numbers_missing(code: Code, numbers: list[float], dtypes: dict[str, str] | 
     return code.method("with_columns", emit.call("pl.col", *columns).method("replace", numbers, None))
 
 
-def _na_values_per_column(call: PandasCall, ctx: RuleContext) -> dict[str, list[str]] | None:
+def _na_values_per_column(call: PandasCall, ctx: RuleContext,
+                          keep_default_na: bool = True) -> dict[str, list[str]] | None:
     """na_values={column: token(s)}: the texts each column adds to pandas' own tokens (which
     still apply to every column); None when na_values is not a dict."""
     if not call.has("na_values"):
@@ -526,7 +746,7 @@ def _na_values_per_column(call: PandasCall, ctx: RuleContext) -> dict[str, list[
             else [value]
         if not all(isinstance(v, str) or is_number(v) for v in values):
             raise ctx.todo(f"na_values[{column!r}]={value!r}: porter reads text or numbers here")
-        texts = [t for t in na_value_texts(values) if t not in PANDAS_NA_TOKENS]
+        texts = [t for t in na_value_texts(values) if t not in PANDAS_NA_TOKENS or not keep_default_na]
         if texts:
             per_column[column] = texts
     return per_column
@@ -583,6 +803,32 @@ def _emptied_columns(per_column: dict[str, list[str]], schema: Any, overrides: d
                            f"{kind or 'a type porter does not know'}, which porter does not "
                            "cast from text")
     return out
+
+
+def _compression(call: PandasCall, source: Value, ctx: RuleContext) -> None:
+    """read_csv(compression=...): "infer" (pandas' default: from the name, see check_source),
+    "gzip" or "zstd" (also as {"method": ...}), which Polars' scan reads from any name (it
+    tells them by their first bytes), or None on a name pandas infers no compression from.
+    Other methods, and None on a .gz / .zst name (pandas reads the compressed bytes as text,
+    Polars decompresses them), are TODOs."""
+    if not call.has("compression"):
+        return
+    given = call.const("compression", None, "?", kinds=(str, dict, type(None)))
+    method = given
+    if isinstance(given, dict):
+        if set(given) != {"method"}:
+            raise ctx.todo(f"compression={given!r}: porter reads a method alone")
+        method = given["method"]
+    if method in ("infer", "gzip", "zstd"):
+        return
+    if method is None:
+        path = _paths(source)
+        if isinstance(path, str) and compression_of(path) is None:
+            return
+        raise ctx.todo("compression=None on a file named .gz or .zst (or not known): pandas reads "
+                       "its bytes as text, Polars' scan decompresses them")
+    raise ctx.todo(f"compression={method!r}: Polars' scans decompress gzip and zstd only; "
+                   "decompress the file first, or read it with pandas and hand it over")
 
 
 def check_source(source: Value, ctx: RuleContext) -> None:
@@ -665,6 +911,55 @@ def _pandas_writes(frame: Frame, call: PandasCall, target: Value, ctx: RuleConte
     passed = {name: _plain_argument(call, name) for name in (*HANDED_OPTIONS, *also)
               if call.has(name)}
     return Scalar(handover.to_pandas(frame).method("to_csv", target.code, **passed))
+
+
+# what a usecols function may use: its parameter, constants, comparisons, and str methods that
+# compute from the name alone
+_NAME_METHODS = {"startswith", "endswith", "lower", "upper", "strip", "lstrip", "rstrip",
+                 "isdigit", "isalpha", "isnumeric", "casefold", "replace", "split"}
+_SAFE_NODES = (ast.Expression, ast.Lambda, ast.arguments, ast.arg, ast.Name, ast.Load,
+               ast.Constant, ast.Compare, ast.BoolOp, ast.And, ast.Or, ast.UnaryOp, ast.Not,
+               ast.In, ast.NotIn, ast.Eq, ast.NotEq, ast.Set, ast.List, ast.Tuple, ast.Call,
+               ast.Attribute, ast.Subscript, ast.Slice)
+
+
+def _usecols_function(call: PandasCall, ctx: RuleContext) -> Any:
+    """usecols=lambda c: ... written in the call, as a Python function porter can call with a
+    header name, when it computes from the name alone (str methods, comparisons, constants:
+    `c.startswith("v")`, `c in {"a", "b"}`, `c not in ("x",)`); None when usecols is not a
+    lambda. A lambda that reads anything else is a TODO."""
+    node = next((arg.value for arg in call.node.args
+                 if arg.keyword is not None and arg.keyword.value == "usecols"), None) \
+        if isinstance(call.node, cst.Call) else None
+    if not isinstance(node, cst.Lambda):
+        return None
+    text = cst.Module([]).code_for_node(node)
+    try:
+        tree = ast.parse(text.strip(), mode="eval")
+    except SyntaxError:
+        raise ctx.todo("usecols given as a function porter cannot read")
+    function = tree.body
+    if not isinstance(function, ast.Lambda) or len(function.args.args) != 1 \
+            or function.args.vararg or function.args.kwarg or function.args.kwonlyargs \
+            or function.args.defaults:
+        raise ctx.todo("usecols given as a function of other than one parameter")
+    parameter = function.args.args[0].arg
+    for part in ast.walk(function.body):
+        if not isinstance(part, _SAFE_NODES):
+            raise ctx.todo(f"usecols given as a function that uses {type(part).__name__}: porter "
+                           "calls one made of the name, constants, comparisons and str methods")
+        if isinstance(part, ast.Name) and part.id != parameter:
+            raise ctx.todo(f"usecols given as a function that reads {part.id!r}: porter calls "
+                           "one made of the name, constants, comparisons and str methods")
+        if isinstance(part, ast.Call) and not (isinstance(part.func, ast.Attribute)
+                                               and part.func.attr in _NAME_METHODS):
+            raise ctx.todo("usecols given as a function that calls something other than a str "
+                           "method")
+        if isinstance(part, ast.Attribute) and part.attr not in _NAME_METHODS:
+            raise ctx.todo(f"usecols given as a function that reads .{part.attr}")
+        if isinstance(part, ast.Constant) and not isinstance(part.value, (str, int)):
+            raise ctx.todo("usecols given as a function with a constant other than text or a number")
+    return eval(compile(tree, "<usecols>", "eval"), {"__builtins__": {}})  # noqa: S307 - checked above
 
 
 def _select_in_file_order(frame: Frame, usecols: list[Any], ctx: RuleContext) -> Frame:

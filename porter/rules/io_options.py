@@ -426,12 +426,19 @@ def scan_kwargs(options: dict[str, Any]) -> dict[str, Any]:
         kwargs["has_header"] = False
     if "names" in options:
         kwargs["new_columns"] = list(options["names"])
+    if options.get("number_names"):  # header=None without names=: pandas' 0, 1, ... as text
+        kwargs["with_column_names"] = lambda names: [str(i) for i in range(len(names))]
     if options.get("decimal") == ",":
         kwargs["decimal_comma"] = True
+    if options.get("comment"):  # lines that start with it (the schema reader looks at others)
+        kwargs["comment_prefix"] = options["comment"]
     if "skiprows" in options:
         kwargs["skip_rows"] = options["skiprows"]
     if "lineterminator" in options:  # lines ending in a bare \r (the schema reader's finding)
         kwargs["eol_char"] = options["lineterminator"]
+    if options.get("keep_default_na") is False:  # only the na_values given, and "" is text
+        kwargs["null_values"] = []
+        kwargs["empty_string_is_null"] = False
     na = options.get("na_values")
     if isinstance(na, str):
         kwargs["null_values"].append(na)
