@@ -183,6 +183,7 @@ def series_sort_values(call: PandasCall, ctx: RuleContext) -> Value:
     column = call.receiver
     assert isinstance(column, Column)
     ctx.reject_unknown(call, "ascending", "na_position", "kind", "ignore_index")
+    column = values_fixed(column)  # a running sum keeps the values of the rows in their order
     frame = column.frame
     code = pandas_order(frame, column.code, column.dtype, call.const("ascending", None, True),
                         call.const("na_position", None, "last"),
