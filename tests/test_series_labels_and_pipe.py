@@ -37,6 +37,11 @@ Jules,Boskoop,0.1,0
     'by = crates.groupby("grower")["kg"].max()\nprint(by.index.tolist(), list(by.index), list(by))',
     'totals = crates[["kg", "crates"]].sum()\nprint(totals["crates"], totals.loc["kg"])',
     'gaps = crates.isna().sum()\nprint([name for name, n in gaps.items() if n > 0])',
+    'print(len(crates.index), crates.index.tolist(), crates.index.max())',
+    'for i in crates.index[:3]:\n    print(i, i * 2)',
+    'print(crates["kg"][1:4].tolist(), crates["grower"][:2].tolist(), crates["crates"][-2:].tolist())',
+    'by = crates.groupby("grower")["kg"].sum()\nprint(by[1:].tolist(), by.sort_values()[:2].tolist())',
+    'c = crates["crates"].cumsum()\nprint(c[2:5].tolist())',
 ])
 def test_values_read_by_label_are_pandas_own(tmp_path: Path, lines: str) -> None:
     text = same_text(f'''\

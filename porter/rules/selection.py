@@ -751,6 +751,13 @@ def series_getitem(call: PandasCall, ctx: RuleContext) -> Value:
             and column.frame.labels_intact and not column.frame.index:
         from porter.rules.materialize import series_position
         return series_position(call, ctx)
+    if isinstance(key, Opaque) and isinstance(key.const, slice):
+        # s[a:b] of whole numbers is by position in pandas, whatever the labels
+        column = values_fixed(column)  # a rank or running sum keeps the values of all rows
+        rows = slice_rows(column.frame, key.const)
+        return Column(column.code, frame=rows, name=column.name, dtype=column.dtype,
+                      null_is_false=column.null_is_false, refs=column.refs,
+                      versions=column.versions)
     if isinstance(key, Opaque) and key.is_const and unique_key(column.frame):
         return series_label(call, ctx)
     if not isinstance(key, Column):
