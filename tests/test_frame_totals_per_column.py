@@ -59,6 +59,8 @@ result.to_csv("labelled.csv")
     "shelves[['grams', 'packets']].max()",
     "shelves[['packets']].min()",
     "shelves[['moisture', 'grams']].min()",
+    "shelves[['grams', 'packets', 'sown']].median()",
+    "shelves.median(numeric_only=True)",
 ])
 @pytest.mark.parametrize("rows", ["", EMPTY], ids=["shelves", "empty"])
 def test_per_column_reductions_are_pandas_own(tmp_path: Path, reduction: str, rows: str) -> None:

@@ -26,7 +26,7 @@ from porter.rules import rule
 from porter.rules.io_options import ROW_FUNCTION, float_text
 from porter.rules.ops import abs_, compare, int64_branches, int64_lit, may_hold_nan, round_
 from porter.rules.strings import LIST_STR
-from porter.rules.totals import column_totals, float_sum
+from porter.rules.totals import column_totals, float_sum, pandas_median
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_of, derived_column, value_dtype,
     with_column_updates,
@@ -1568,6 +1568,23 @@ _HORIZONTAL = {"sum": "sum_horizontal", "max": "max_horizontal", "min": "min_hor
                "mean": "mean_horizontal"}
 
 
+@rule("frame.median")
+def frame_median(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.median() -> each column's median as pandas computes it (per column, axis=0).
+
+    Handles: numbers and True/False (1 and 0), the two middle values added and halved for an
+    even count, missing values skipped; numeric_only=True when every column's type is known.
+    Caveats: axis=1, skipna=False and text or date columns are TODOs."""
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "axis", "skipna", "numeric_only", positional=1)
+    if call.const("axis", 0, 0, kinds=(int, str)) not in (0, "index"):
+        raise Unsupported("a median per row (axis=1)")
+    if not call.const("skipna", None, True, kinds=(bool,)):
+        raise Unsupported("skipna=False")
+    return _per_column(call, frame, ctx)
+
+
 @rule("frame.sum", "frame.max", "frame.min", "frame.mean", "frame.count")
 def frame_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
     """df[[a, b]].sum(axis=1) / max / min / mean / count -> pl.sum_horizontal(a, b) / ...
@@ -1655,16 +1672,19 @@ def _per_column(call: PandasCall, frame: Frame, ctx: RuleContext) -> Column:
         return column_totals(frame, names, lambda c: emit.col(c).method("count").method(
             "cast", emit.atom("pl.Int64")), "int")
     kinds = {c: frame.dtype(c) for c in names}
-    allowed = {"int", "float", "bool"} if call.name in ("sum", "mean") else {"int", "float"}
+    allowed = {"int", "float", "bool"} if call.name in ("sum", "mean", "median") \
+        else {"int", "float"}
     other = sorted({str(k) for k in kinds.values() if k not in allowed})
     if other:
         raise Unsupported(f"a {call.name} per column over {', '.join(other)} columns (pandas "
                           "reduces text and dates too, or gives an object Series)")
-    floats = "float" in kinds.values() or call.name == "mean"
+    floats = "float" in kinds.values() or call.name in ("mean", "median")
     as_float = emit.atom("pl.Float64")
 
     def reduce(name: str) -> Code:
         column = emit.col(name)
+        if call.name == "median":  # numpy's: the two middle values added and halved
+            return pandas_median(column if kinds[name] == "float" else column.method("cast", as_float))
         if call.name == "mean":
             # pandas adds the values as float64, with numpy's pairwise sum, over the count
             return float_sum(column if kinds[name] == "float" else column.method("cast", as_float),

@@ -14,6 +14,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.elementwise import body_expression
+from porter.rules.totals import pandas_median
 from porter.rules.ops import float32_possible, small_ints_possible
 from porter.rules.io_options import (
     CATEGORY_COUNTS_FUNCTION, DIVIDE_FUNCTION, QUANTILE_FUNCTION, UNSTACKED_FUNCTION,
@@ -293,14 +294,6 @@ def _own_group_sum(expr: Code, untyped: Collection[str] = ()) -> tuple[Code, str
         if name is None:
             return None
     return emit.atom(values), name, node.func.id == GROUP_MEAN_FUNCTION, True
-
-
-def pandas_median(column: Code) -> Code:
-    """The median of numbers as pandas (and numpy) compute it: the middle value, or the two
-    middle ones added and halved, (a + b) / 2 (0.39999999999999997 for 0.7 and 0.1), where
-    Polars' median gives 0.4. Missing values skipped; of none, missing."""
-    return emit.binop(emit.binop(column.method("quantile", 0.5, "lower"), "+",
-                                 column.method("quantile", 0.5, "higher")), "/", 2)
 
 
 def agg_expr(column: Code, how: str, dtype: str | None = None, *, float32: bool = False) -> Code:
