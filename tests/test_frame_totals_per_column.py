@@ -48,6 +48,8 @@ result.to_csv("labelled.csv")
     "shelves.notna().sum()",
     "shelves.isnull().any()",
     "shelves[['grams', 'moisture']].notnull().all()",
+    "shelves.isna().mean()",
+    "(shelves.notna().mean() * 100).round(1)",
     "shelves.count()",
     "shelves.nunique()",
     "shelves.nunique(dropna=False)",

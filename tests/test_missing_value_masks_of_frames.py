@@ -111,6 +111,8 @@ def test_an_empty_frame() -> None:
     'result = df[["a", "s"]].isna().sum()',
     'result = df[["a", "s"]].notna().any()',
     'result = df.isnull().all()',
+    'result = df[["a", "s"]].isna().mean(axis=1)',
+    'result = df.notna().mean()',
 ])
 def test_per_column_results_are_pandas_own(line: str) -> None:
     # per-column counts are a Series indexed by column name: a frame of the names and values
@@ -119,7 +121,7 @@ def test_per_column_results_are_pandas_own(line: str) -> None:
 
 
 @pytest.mark.parametrize("line, key", [
-    ('result = df[["a", "s"]].isna().mean(axis=1)', "frame.isna.mean"),
+    ('result = df[["a", "s"]].isna().std()', "frame.isna.std"),
     ('result = df[["a", "s"]].isna().sum(axis=1, min_count=3)', "frame.isna.sum"),
     ('result = df[["a", "s"]].isna().sum(axis=None)', "frame.isna.sum"),
 ])

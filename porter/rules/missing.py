@@ -98,10 +98,12 @@ def frame_isna(call: PandasCall, ctx: RuleContext) -> Value:
                        source=frame, names=names, test=test)
 
 
-@rule("frame.isna.any", "frame.isna.all", "frame.isna.sum")
+@rule("frame.isna.any", "frame.isna.all", "frame.isna.sum", "frame.isna.mean")
 def missing_mask_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
     """df[cols].isna().any(axis=1) / .all(axis=1) / .sum(axis=1) -> pl.any_horizontal /
-    pl.all_horizontal / pl.sum_horizontal of pl.col(cols).is_null() (is_not_null for notna).
+    pl.all_horizontal / pl.sum_horizontal of pl.col(cols).is_null() (is_not_null for notna);
+    mean(axis=1) is that count over the number of columns. Per column (axis=0, the default):
+    is_null().sum() / any() / all() / mean() of each, a Series indexed by the column names.
 
     Handles: the mask holds no missing values, so skipna, bool_only and numeric_only change
     nothing; sum counts per row (Int64, as pandas' int64), min_count up to the number of
@@ -112,7 +114,8 @@ def missing_mask_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
     mask = call.receiver
     if not isinstance(mask, MissingMask):
         raise Unsupported("not a mask made by isna() / notna()")
-    extra = ["skipna", "numeric_only", "min_count"] if call.name == "sum" else ["skipna", "bool_only"]
+    extra = ["skipna", "numeric_only", "min_count"] if call.name == "sum" else \
+        ["skipna", "numeric_only"] if call.name == "mean" else ["skipna", "bool_only"]
     ctx.reject_unknown(call, "axis", *extra, positional=1)
     axis = call.const("axis", 0, 0, kinds=(int, str, type(None)))
     if axis in (0, "index"):
@@ -129,8 +132,8 @@ def missing_mask_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
             test = emit.col(name).method(mask.test).method(call.name)
             return test.method("cast", emit.atom("pl.Int64")) if call.name == "sum" else test
 
-        return column_totals(mask.source, mask.names, reduce,
-                             "int" if call.name == "sum" else "bool")
+        return column_totals(mask.source, mask.names, reduce, {"sum": "int", "mean": "float"}
+                             .get(call.name, "bool"))
     if axis not in (1, "columns"):
         raise Unsupported(f"a {call.name} of the whole frame (axis=None)")
     for flag in extra:
@@ -141,12 +144,15 @@ def missing_mask_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
     source = mask.source
     columns = [column_of(source, c) for c in mask.names]
     tests = emit.col(emit.names_arg(mask.names)).method(mask.test)
-    code = emit.pl(f"{call.name}_horizontal", tests)
+    if call.name == "mean":  # the share of the row's columns: a count over their number
+        code = emit.binop(emit.pl("sum_horizontal", tests), "/", len(mask.names))
+    else:
+        code = emit.pl(f"{call.name}_horizontal", tests)
     if call.name == "sum":
         code = code.method("cast", emit.atom("pl.Int64"))  # a count of True: UInt32 in Polars
     base = Column(emit.pl("lit", None), frame=source, name=None)
-    return derived_column(base, code, dtype="int" if call.name == "sum" else "bool", name=None,
-                          others=columns)
+    return derived_column(base, code, dtype={"sum": "int", "mean": "float"}.get(call.name, "bool"),
+                          name=None, others=columns)
 
 
 def _subset(call: PandasCall, frame: Frame) -> list[str] | None:
