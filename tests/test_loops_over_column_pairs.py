@@ -64,3 +64,14 @@ for name, col in sailings.items():
     print(name, len(col))
 ''', tmp_path, {"sailings.csv": SAILINGS}).converted_text
     assert "for name, col in" in text, text
+
+
+def test_a_loop_that_changes_the_frame_runs_as_pandas_runs_it(tmp_path: Path) -> None:
+    # the body writes columns of the frame it iterates: the loop stays pandas' (handed over)
+    same_text('''\
+import pandas as pd
+sailings = pd.read_csv("sailings.csv")
+for name, col in sailings[["cars", "fare"]].items():
+    sailings[name + "_x2"] = col * 2
+sailings.to_csv("out.csv", index=False)
+''', tmp_path, {"sailings.csv": SAILINGS})

@@ -639,8 +639,9 @@ class _Walker:
         key, series = (e.value.value for e in stmt.target.elements)  # type: ignore[attr-defined]
         assigned = _Assigned()
         stmt.body.visit(assigned)
-        if {key, series} & assigned.names:
-            return None
+        if {key, series} & assigned.names or assigned.changes_objects \
+                or any(isinstance(env.get(n), (Frame, Column)) for n in assigned.names):
+            return None  # (a loop that changes frames is handed to pandas as written)
         return frame, key, series
 
     def frames_changed_by_a_loop(self, stmt: cst.For, env: dict[str, Value]) -> tuple[list[str], SiteDraft | None]:
@@ -2815,12 +2816,19 @@ class _Assigned(cst.CSTVisitor):
 
     def __init__(self) -> None:
         self.names: set[str] = set()
+        self.changes_objects = False  # x[...] = / x.a = / a call with inplace=True
 
     def visit_AssignTarget(self, node: cst.AssignTarget) -> None:
         self.names.update(_target_names(node.target))
+        self.changes_objects |= isinstance(node.target, (cst.Subscript, cst.Attribute))
 
     def visit_AugAssign(self, node: cst.AugAssign) -> None:
         self.names.update(_target_names(node.target))
+        self.changes_objects |= isinstance(node.target, (cst.Subscript, cst.Attribute))
+
+    def visit_Arg(self, node: cst.Arg) -> None:
+        if node.keyword is not None and node.keyword.value == "inplace":
+            self.changes_objects = True
 
     def visit_AnnAssign(self, node: cst.AnnAssign) -> None:
         self.names.update(_target_names(node.target))
