@@ -1668,6 +1668,10 @@ def _per_column(call: PandasCall, frame: Frame, ctx: RuleContext) -> Column:
     if frame.columns is None or not frame.columns:
         raise Unsupported("the frame's columns are not known")
     names = [c.name for c in _row_columns(call, frame)]  # type: ignore[misc]
+    if call.const("numeric_only", None, False, kinds=(bool,)):
+        ctx.lower("numeric_only=True picks the columns by the types porter knows: pandas reads "
+                  "a file with a header and no rows as text in every column, and reduces none "
+                  "of them", 0.95)
     if call.name == "count":
         return column_totals(frame, names, lambda c: emit.col(c).method("count").method(
             "cast", emit.atom("pl.Int64")), "int")
