@@ -295,3 +295,26 @@ def test_a_plan_collected_by_the_next_statement_is_not_collected_before(tmp_path
     parse = text[text.index('t = t.with_columns(\n    sailed='):text.index("weekday=")]
     assert ".collect()" not in parse, text
     assert text.count(".collect()") == 3, text  # the weekday, the sort (two uses), the print
+
+
+def test_a_count_that_runs_the_plan_again_gives_pandas_values(tmp_path, monkeypatch):
+    # missing values, NaN, duplicates, unicode and an empty result: the count of the filtered
+    # rows and the rows themselves are pandas', with the frame left lazy for the count
+    from support import differential
+    (tmp_path / "cargo.csv").write_text(
+        "kind,tons,port\nsalt,2,Ålesund\nsalt,2,Ålesund\nwool,,Sandvik\nfish,0.5,\n"
+        "ore,3,Sandvik\nore,NaN,Åre\n", encoding="utf-8")
+    monkeypatch.chdir(tmp_path)
+    result = differential('''
+        import numpy as np
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        df["w"] = df["tons"] * 2
+        df["w"] = df["w"].where(df["w"] != 4, np.nan)
+        kept = df[df["w"] > 1]
+        none = df[df["w"] > 1e9]
+        n, m = len(kept), len(none)
+        both = kept.drop_duplicates()
+        ''', "n", "m", "kept", "none", "both")
+    flat = "".join(result.converted_text.split())
+    assert "kept=df.filter" in flat and ".collect().lazy()" not in flat, result.converted_text
