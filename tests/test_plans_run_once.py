@@ -1,9 +1,12 @@
-"""Each converted corpus script reads each input file once.
+"""Each converted corpus script reads each input file once (counting rows apart).
 
 Speed is the reason people port. A converted script that runs a shared plan once per consumer
 reads its inputs again for every output; porter collects such a plan once, where it is bound
 (the materialisation model, docs/design.md). This test runs each converted corpus script with
 Polars' execution entry points wrapped, and counts, per input file, the plans that scan it.
+A plan that only counts the rows of a read and filtered frame (`SELECT [len()]`) is not
+counted: it streams over the file reading the columns its filters need and keeps nothing,
+where keeping the frame for it would hold the whole file while every later plan runs.
 """
 
 from __future__ import annotations
@@ -34,6 +37,8 @@ def record(frames):
             plan = frame.explain()
             if "FAST COUNT" in plan and "SCAN [" not in plan:
                 continue  # counting a file's rows reads no columns (len(df) of a plain read)
+            if frame.explain(optimized=False).startswith("SELECT [len()]"):
+                continue  # counting a filtered read's rows keeps nothing (cheap_to_recount)
             for path in set(re.findall(r"SCAN \[([^\]]+)\]", frame.explain(optimized=False))):
                 scans[path] += 1
 
@@ -142,13 +147,84 @@ def test_counting_the_rows_of_a_file_does_not_keep_the_frame():
     assert ".collect().lazy()" in text[text.index("print("):], text
 
 
-def test_counting_the_rows_of_a_filtered_frame_is_an_execution():
+def test_counting_the_rows_of_a_filtered_read_does_not_keep_the_frame():
+    # the count streams over the file again (only the filter's column) and keeps nothing;
+    # collecting `kept` for it would hold every column while the write runs
+    text = _converted('''
+        import pandas as pd
+        df = pd.read_csv("log.csv")
+        df["m"] = df["n"] * 2
+        kept = df[df["n"] > 0]
+        print(len(kept))
+        kept.to_csv("a.csv", index=False)
+        ''')
+    assert ".collect().lazy()" not in "".join(text.split()), text
+
+
+def test_counting_a_filter_of_a_frame_kept_for_other_uses_counts_it_in_memory():
+    # `gone` is counted; its parent `df` is collected for its two outputs, so the count reads
+    # the frame in memory, and `gone` itself is never collected
+    text = _converted('''
+        import pandas as pd
+        df = pd.read_csv("log.csv")
+        df.to_csv("a.csv", index=False)
+        gone = df[df["n"] <= 0]
+        print(len(gone))
+        print(df["n"].sum())
+        ''')
+    flat = "".join(text.split())
+    assert flat.count(".collect().lazy()") == 1, text
+    assert flat.index(".collect().lazy()") < flat.index("gone="), text
+
+
+@pytest.mark.parametrize("step", [
+    'kept = df[df["n"] > 0].sort_values("n")',
+    'kept = df[df["s"].apply(readable)]',
+    'kept = df.merge(df[["k"]].drop_duplicates(), on="k")',
+    'kept = df.groupby("k", as_index=False)["n"].sum()',
+])
+def test_counting_the_rows_of_a_costly_plan_is_an_execution(step):
+    # a sort, a Python function, a join or a group would run again for the count: the frame
+    # is collected once and counted in memory
+    text = _converted(f'''
+        import pandas as pd
+        def readable(text):
+            try:
+                return int(text.split("-")[0]) > 0
+            except (AttributeError, ValueError):
+                return False
+        df = pd.read_csv("log.csv")
+        {step}
+        print(len(kept))
+        kept.to_csv("a.csv", index=False)
+        ''')
+    kept = text[text.index("kept ="):text.index("print(")]
+    assert ".collect()" in kept, text
+
+
+def test_counting_rows_in_a_loop_is_an_execution_each_time():
     text = _converted('''
         import pandas as pd
         df = pd.read_csv("log.csv")
         kept = df[df["n"] > 0]
-        print(len(kept))
+        for limit in (1, 2):
+            print(limit, len(kept))
         kept.to_csv("a.csv", index=False)
+        ''')
+    kept = text[text.index("kept ="):text.index("for limit")]
+    assert ".collect()" in kept, text
+
+
+def test_counting_the_rows_of_a_filtered_frame_made_by_an_unknown_plan_is_an_execution():
+    # a function's parameter: the plan it stands for is the caller's, which porter does not
+    # see from inside the body, so the count keeps the frame
+    text = _converted('''
+        import pandas as pd
+        def report(frame):
+            kept = frame[frame["n"] > 0]
+            print(len(kept))
+            kept.to_csv("a.csv", index=False)
+        report(pd.read_csv("log.csv").sort_values("n"))
         ''')
     kept = text[text.index("kept ="):text.index("print(")]
     assert ".collect()" in kept, text
@@ -219,3 +295,26 @@ def test_a_plan_collected_by_the_next_statement_is_not_collected_before(tmp_path
     parse = text[text.index('t = t.with_columns(\n    sailed='):text.index("weekday=")]
     assert ".collect()" not in parse, text
     assert text.count(".collect()") == 3, text  # the weekday, the sort (two uses), the print
+
+
+def test_a_count_that_runs_the_plan_again_gives_pandas_values(tmp_path, monkeypatch):
+    # missing values, NaN, duplicates, unicode and an empty result: the count of the filtered
+    # rows and the rows themselves are pandas', with the frame left lazy for the count
+    from support import differential
+    (tmp_path / "cargo.csv").write_text(
+        "kind,tons,port\nsalt,2,Ålesund\nsalt,2,Ålesund\nwool,,Sandvik\nfish,0.5,\n"
+        "ore,3,Sandvik\nore,NaN,Åre\n", encoding="utf-8")
+    monkeypatch.chdir(tmp_path)
+    result = differential('''
+        import numpy as np
+        import pandas as pd
+        df = pd.read_csv("cargo.csv")
+        df["w"] = df["tons"] * 2
+        df["w"] = df["w"].where(df["w"] != 4, np.nan)
+        kept = df[df["w"] > 1]
+        none = df[df["w"] > 1e9]
+        n, m = len(kept), len(none)
+        both = kept.drop_duplicates()
+        ''', "n", "m", "kept", "none", "both")
+    flat = "".join(result.converted_text.split())
+    assert "kept=df.filter" in flat and ".collect().lazy()" not in flat, result.converted_text

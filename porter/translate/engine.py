@@ -139,6 +139,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
         services.labels_needed = set()
         services.label_functions, services.pandas_functions = set(), set()
         services.consumers, services.frame_parents = {}, {}
+        services.row_counts, services.plan_texts = {}, {}
         services.materialized = set()
         services.applied_functions, services.applied_kinds = {}, {}
         walker = _Walker(services, facts, emit_code=False, files=files)
@@ -159,6 +160,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
         labels_before = set(services.labels_needed)
         services.call_sites = {}
         services.consumers, services.frame_parents = {}, {}
+        services.row_counts, services.plan_texts = {}, {}
         services.materialized = set()
         services.applied_functions, services.applied_kinds = {}, {}
         walker = _Walker(services, facts, emit_code=False, files=files)
@@ -168,8 +170,9 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
             break
         services.functions = updated
 
-    services.collect_at = plans_to_collect(services.consumers, services.frame_parents,
-                                           frozenset(services.materialized))
+    services.collect_at = plans_to_collect(
+        services.consumers, services.frame_parents, frozenset(services.materialized),
+        services.row_counts, lambda binding: _cheap_to_recount(binding, services))
     services.call_sites = {}
     walker = _Walker(services, facts, emit_code=True, files=files)
     body, _ = walker.block(module.body, _initial_env(facts), module.default_indent, "")
@@ -880,6 +883,15 @@ class _Walker:
             text, new_sites = self.small(small, env, indent)
             texts.append(text)
             sites += new_sites
+            if isinstance(small, cst.Assign):  # the plan it binds, for _cheap_to_recount
+                written = text if text is not None else self.services.code_for(small)
+                if any(isinstance(_plan_of(before.get(n)), Frame)
+                       and _plan_of(before.get(n)).binding is None  # type: ignore[union-attr]
+                       for n in _names_read(written)):
+                    written = "collect"  # a frame from elsewhere (a parameter): not known here
+                known = self.services.plan_texts.get(self.statement_key)
+                self.services.plan_texts[self.statement_key] = \
+                    written if known is None else f"{known}\n{written}"
             if text is not None:
                 execution: int = id(small)
                 if len(smalls) == 1 and is_sink_text(text):
@@ -949,6 +961,12 @@ class _Walker:
                 if name in counted and value.rows in self.services.file_rows:
                     # only the rows of a file are counted: Polars counts them from the scan
                     # without reading the columns, cheaper than keeping the frame
+                    continue
+                if name in counted and not self.loop_depth:
+                    # only its rows are counted: plans_to_collect decides whether that runs
+                    # the plan again or needs the frame kept
+                    self.services.row_counts.setdefault(value.binding, set()).add(
+                        (statement, 2 * execution))
                     continue
                 uses = self.services.consumers.setdefault(value.binding, set())
                 uses.add((statement, 2 * execution))
@@ -2446,7 +2464,10 @@ def _from_pandas(name: str, frame: Frame) -> Code:
 
 def plans_to_collect(consumers: dict[int, set[tuple[int, int]]],
                      parents: dict[int, set[int]],
-                     materialized: frozenset[int] = frozenset()) -> frozenset[int]:
+                     materialized: frozenset[int] = frozenset(),
+                     row_counts: dict[int, set[tuple[int, int]]] | None = None,
+                     cheap_to_recount: Callable[[int], bool] = lambda binding: False,
+                     ) -> frozenset[int]:
     """The bindings whose plans are collected where they are made (the materialisation model).
 
     A statement that computes a frame (a sink, a print, a scalar, a hand-over to pandas) runs
@@ -2459,7 +2480,17 @@ def plans_to_collect(consumers: dict[int, set[tuple[int, int]]],
     sink; a frame shared by several outputs is computed once, at the last point they share.
     A binding whose own statement collects it (`materialized`) runs the plans it is made
     from once, there: that collect is already one of their consumers.
+    A statement that only counts a frame's rows (`row_counts`: `len(kept)` outside a loop) is
+    one of its executions unless `cheap_to_recount` says its plan, back to the files, only
+    reads and filters (no Python function, join, sort or group): Polars then counts the rows
+    in one streaming pass over the file, reading only the columns the filters need, which
+    costs a fraction of the read and no memory, where keeping the frame for the count holds
+    the whole file's columns while every later plan runs.
     """
+    consumers = {b: set(c) for b, c in consumers.items()}
+    for binding, counts in (row_counts or {}).items():
+        if not cheap_to_recount(binding):
+            consumers.setdefault(binding, set()).update(counts)
     children: dict[int, set[int]] = {}
     for child, owners in parents.items():
         for owner in owners:
@@ -2489,6 +2520,89 @@ def plans_to_collect(consumers: dict[int, set[tuple[int, int]]],
     for binding in list(parents) + list(consumers):
         executions(binding, frozenset({binding}))
     return frozenset(collected)
+
+
+# what makes a plan costly to run a second time only to count its rows: a Python function
+# on the values, rows joined, sorted, grouped, windowed or made from pandas (porter's own
+# helpers named pandas_* sort or call Python, except those listed as cheap below)
+_COSTLY_PLAN = ("map_elements", "map_batches", "map_distinct", ".pipe(", "lambda", "join",
+                "group_by", "sort", ".over(", "unique", "rolling", "ewm_", "pandas", "concat",
+                "explode", "pivot", "cum_", "shift(", "collect", "read_", "implode", "iter_",
+                "n_rows", "head(", "tail(", "slice(", "sample(", "gather")
+_CHEAP_HELPERS = ("pandas_upper(", "pandas_title(", "PANDAS_NA_VALUES", "PANDAS_WHITESPACE",
+                  "pandas_lower(")
+# the same in the pandas code of the script's own functions the plan calls
+_COSTLY_PANDAS = ("apply", ".map(", "merge", "join", "groupby", "sort", "transform", "rolling",
+                  "ewm", "expanding", "drop_duplicates", "unique", "iterrows", "itertuples",
+                  "lambda", "pivot", "melt", "concat", "explode", "cum", "shift", "resample",
+                  "for ", "while ", "to_pandas", "stack", "read_excel", "read_json", "eval(",
+                  "query(", "global ", "nonlocal ", "open(")
+
+
+def _cheap_to_recount(binding: int, services: Services) -> bool:
+    """Whether counting the rows of the frame `binding` names runs no more than a scan and
+    filters of it (plans_to_collect): every plan from the files to it (bindings read, and the
+    script's own functions its code calls) reads files with pl.scan_* and filters or adds
+    columns with Polars expressions. A plan whose statement collects it is in memory: the walk
+    stops there."""
+    seen: set[int] = set()
+    todo = [binding]
+    while todo:
+        current = todo.pop()
+        if current in seen:
+            continue
+        seen.add(current)
+        if current in services.materialized:
+            continue  # its statement collects it: counting reads the frame in memory
+        text = services.plan_texts.get(current)
+        if text is None or _collects_what_it_binds(text):
+            if text is None:
+                return False  # bound by a loop, a with, a parameter: not known
+            continue
+        if not _cheap_code(text, services, set()):
+            return False
+        todo.extend(services.frame_parents.get(current, ()))
+    return True
+
+
+def _cheap_code(text: str, services: Services, functions: set[str]) -> bool:
+    """No step of _COSTLY_PLAN in `text` (Polars code porter wrote), nor in the pandas code of
+    the script's own functions it calls (_COSTLY_PANDAS)."""
+    plain = text
+    for helper in _CHEAP_HELPERS:
+        plain = plain.replace(helper, "")
+    if any(step in plain for step in _COSTLY_PLAN):
+        return False
+    try:
+        tree = ast.parse(text.strip())
+    except SyntaxError:
+        return False
+    for node in ast.walk(tree):
+        if isinstance(node, ast.Call) and isinstance(node.func, ast.Name) \
+                and node.func.id in services.function_defs and node.func.id not in functions:
+            functions.add(node.func.id)
+            body = services.code_for(services.function_defs[node.func.id])
+            if any(step in body for step in _COSTLY_PANDAS) \
+                    or not _cheap_calls(body, services, functions):
+                return False
+    return True
+
+
+def _cheap_calls(body: str, services: Services, functions: set[str]) -> bool:
+    """The script's own functions a function's pandas code calls are cheap too."""
+    try:
+        tree = ast.parse(textwrap.dedent(body))
+    except SyntaxError:
+        return False
+    for node in ast.walk(tree):
+        if isinstance(node, ast.Call) and isinstance(node.func, ast.Name) \
+                and node.func.id in services.function_defs and node.func.id not in functions:
+            functions.add(node.func.id)
+            inner = services.code_for(services.function_defs[node.func.id])
+            if any(step in inner for step in _COSTLY_PANDAS) \
+                    or not _cheap_calls(inner, services, functions):
+                return False
+    return True
 
 
 def _same_code(a: str, b: str) -> bool:

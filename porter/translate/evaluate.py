@@ -97,6 +97,11 @@ class Services:
     infinities_possible: bool = True  # the script divides or writes an infinity
     # statements that compute each named frame's data, by the assignment that named it
     consumers: dict[int, set[tuple[int, int]]] = field(default_factory=dict)
+    # statements that only count the rows of a named frame (`len(kept)`), by its assignment:
+    # an execution only where running its plan again costs more than a scan (plans_to_collect)
+    row_counts: dict[int, set[tuple[int, int]]] = field(default_factory=dict)
+    # the code each assignment of a frame writes (the plan it binds), by the assignment
+    plan_texts: dict[int, str] = field(default_factory=dict)
     # the script may make category columns (astype("category"), cut, a parquet file): a frame
     # pandas made comes back to Polars only when porter knows which columns are categories
     categories_possible: bool = True
