@@ -81,7 +81,7 @@ totals = prices.sum()
 print(repr(totals.iloc[1]), repr(prices.mean().iloc[1]))
 totals.reset_index().to_csv("totals.csv", index=False)
 ''', tmp_path, {"prices.csv": "lot,price\n" + rows + "\n"}).converted_text
-    assert "pandas_float_sum" in text
+    assert "pandas_reduce" in text
 
 
 def test_totals_used_further_read_the_labels(tmp_path: Path) -> None:

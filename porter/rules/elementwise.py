@@ -26,7 +26,7 @@ from porter.rules import rule
 from porter.rules.io_options import ROW_FUNCTION, float_text
 from porter.rules.ops import abs_, compare, int64_branches, int64_lit, may_hold_nan, round_
 from porter.rules.strings import LIST_STR
-from porter.rules.totals import column_totals, float_sum, pandas_median
+from porter.rules.totals import column_totals, pandas_median, pandas_reduce
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_of, derived_column, value_dtype,
     with_column_updates,
@@ -1661,7 +1661,7 @@ def _per_column(call: PandasCall, frame: Frame, ctx: RuleContext) -> Column:
     count counts the present values of columns of any type; sum, mean, min and max need
     every column's type: numbers (and True/False for sum and mean, counted as 1 and 0), where
     pandas would reduce text or dates too, or give an object Series of mixed values. Floats
-    are added as pandas adds them (numpy's pairwise sum, totals.float_sum); integers exactly,
+    are added as pandas adds them (numpy's pairwise sum, totals.pandas_reduce); integers exactly,
     and made float beside a float column as pandas makes the Series float64."""
     if call.name == "sum" and call.const("min_count", None, 0, kinds=(int,)) > 0:
         raise Unsupported("min_count per column")
@@ -1691,10 +1691,10 @@ def _per_column(call: PandasCall, frame: Frame, ctx: RuleContext) -> Column:
             return pandas_median(column if kinds[name] == "float" else column.method("cast", as_float))
         if call.name == "mean":
             # pandas adds the values as float64, with numpy's pairwise sum, over the count
-            return float_sum(column if kinds[name] == "float" else column.method("cast", as_float),
-                             mean=True)
+            return pandas_reduce(column if kinds[name] == "float" else column.method("cast", as_float),
+                                 "mean")
         if call.name == "sum" and kinds[name] == "float":
-            return float_sum(column)
+            return pandas_reduce(column)
         if call.name == "sum":  # whole numbers and True/False: exact, int64 as pandas'
             total = column.method("sum").method("cast", emit.atom("pl.Int64"))
             return total.method("cast", as_float) if floats else total

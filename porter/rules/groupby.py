@@ -14,7 +14,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.elementwise import body_expression
-from porter.rules.totals import pandas_median
+from porter.rules.totals import pandas_median, pandas_reduce
 from porter.rules.ops import float32_possible, small_ints_possible
 from porter.rules.io_options import (
     CATEGORY_COUNTS_FUNCTION, DIVIDE_FUNCTION, QUANTILE_FUNCTION, UNSTACKED_FUNCTION,
@@ -1427,8 +1427,10 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
     as_float = emit.atom("pl.Float64")
     stats: list[tuple[str, Code]] = [
         ("count", numeric.method("count").method("cast", as_float)),
-        ("mean", numeric.method("mean")),
-        ("std", numeric.method("std")),
+        # numpy's pairwise sums, as pandas adds (the last digit of Polars' mean and std
+        # can differ)
+        ("mean", pandas_reduce(numeric.method("cast", as_float), "mean")),
+        ("std", pandas_reduce(numeric.method("cast", as_float), "std")),
         ("min", numeric.method("min").method("cast", as_float)),
         # numpy's interpolation to the last bit, and the sign of a zero (pandas_quantile)
         ("25%", emit.call(QUANTILE_FUNCTION, numeric, 0.25)),
@@ -1452,7 +1454,10 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
                   0.85)
     numeric_cols = tuple(c for c in frame.columns or () if frame.dtype(c) in ("int", "float")) or None
     columns = ("index", *numeric_cols) if numeric_cols else None
-    return Frame(code, columns=columns, index=("index",), labels_intact=False, index_unnamed=True)
+    # every statistic is a float (count too, as pandas gives it)
+    dtypes = (("index", "str"), *((c, "float") for c in numeric_cols or ()))
+    return Frame(code, columns=columns, index=("index",), labels_intact=False, index_unnamed=True,
+                 dtypes=dtypes)
 
 
 

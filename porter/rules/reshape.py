@@ -695,3 +695,34 @@ def _edge(x: Code, p: float) -> Code:
     if p == 1.0:
         return x.method("max")
     return emit.call(QUANTILE_FUNCTION, x, p)
+
+
+@rule("frame.T", "frame.transpose")
+def transpose(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.T / df.transpose() of a table of numbers labelled by one text key (describe()'s
+    statistics, a groupby's keys) -> collect().transpose(include_header=True, ...): the
+    column names become the labels (an unnamed index, "index"), the key's values the columns.
+
+    Handles: numbers of one type, or ints beside floats (float64 in both).
+    Caveats: frames labelled 0..n-1 (pandas' columns would be the integers), text or date
+    columns (an object frame in pandas) and frames whose columns porter does not know are
+    TODOs.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    if call.name == "transpose":
+        ctx.reject_unknown(call, "copy")
+    if frame.columns is None or len(frame.index) != 1 or frame.dtype(frame.index[0]) != "str":
+        raise Unsupported("a frame not labelled by one text key: the new column names would be "
+                          "its row labels")
+    key = frame.index[0]
+    values = [c for c in frame.columns if c != key]
+    kinds = {frame.dtype(c) for c in values}
+    if not values or not kinds <= set(_NUMBER_TYPES):
+        raise Unsupported("text, dates or columns of unknown type: pandas makes an object frame")
+    # (Polars transposes into the columns' common type: ints beside floats become Float64,
+    # as pandas' float64)
+    code = frame.code.method("collect").method(
+        "transpose", include_header=True, header_name="index", column_names=key).method("lazy")
+    return Frame(code, columns=None, index=("index",), labels_intact=False, index_unnamed=True,
+                 dtypes=(("index", "str"),))

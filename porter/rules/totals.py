@@ -21,22 +21,34 @@ from porter.translate.values import Column, Frame, Value
 # the value column's name: pandas' reset_index() of an unnamed Series names it 0
 VALUE = "0"
 
-# pandas' DataFrame.sum() / mean() of float columns: numpy's pairwise sum of each column
-FLOAT_SUM_FUNCTION = "pandas_float_sum"
-FLOAT_SUM_DEFINITION = '''\
-def pandas_float_sum(values, mean=False):
-    """The sum (mean=True: mean) of a float column as pandas' DataFrame.sum() computes it:
-    numpy's pairwise sum of the values, missing ones counted 0 (over the count of values
-    present, NaN when there is none). Polars adds in another order, and the last digit of
-    a sum of many floats can differ."""
-    def add(column):
-        total = column.fill_null(0.0).to_numpy().sum()
-        if mean:
-            count = column.count()
-            return total / count if count else float("nan")
-        return total
+# pandas' sum, mean and std of a float column, as its nanops compute them
+REDUCE_FUNCTION = "pandas_reduce"
+REDUCE_DEFINITION = '''\
+def pandas_reduce(values, how="sum"):
+    """The sum, mean or std (how="sum" / "mean" / "std") of a float column as pandas
+    computes them: numpy's pairwise sum of the values, a missing one counted 0 in its place;
+    the mean over the count of values present; the std from the squared distances to that
+    mean (0 where a value is missing), added the same way, over count - 1, and its square
+    root. NaN where there are too few values. Polars adds in another order, and the last
+    digit can differ (55.080000000000005 for 55.08000000000001)."""
+    def reduce(column):
+        import numpy as np
 
-    return values.map_batches(add, returns_scalar=True, return_dtype=pl.Float64)
+        present = column.is_not_null().to_numpy()
+        numbers = column.fill_null(0.0).to_numpy()
+        total = numbers.sum()
+        if how == "sum":
+            return total
+        count = int(present.sum())
+        if how == "mean":
+            return total / count if count else float("nan")
+        if count < 2:
+            return float("nan")
+        squares = (total / count - numbers) ** 2
+        squares[~present] = 0.0
+        return float(np.sqrt(squares.sum() / (count - 1)))
+
+    return values.map_batches(reduce, returns_scalar=True, return_dtype=pl.Float64)
 '''
 
 
@@ -66,11 +78,11 @@ def pandas_median(column: Code) -> Code:
                                  column.method("quantile", 0.5, "higher")), "/", 2)
 
 
-def float_sum(column: Code, *, mean: bool = False) -> Code:
-    """pandas' sum (mean) of a float column (FLOAT_SUM_DEFINITION)."""
-    if mean:
-        return emit.call(FLOAT_SUM_FUNCTION, column, mean=True)
-    return emit.call(FLOAT_SUM_FUNCTION, column)
+def pandas_reduce(column: Code, how: str = "sum") -> Code:
+    """pandas' sum, mean or std of a float column (REDUCE_DEFINITION)."""
+    if how == "sum":
+        return emit.call(REDUCE_FUNCTION, column)
+    return emit.call(REDUCE_FUNCTION, column, how=how)
 
 
 @rule("frame.nunique")

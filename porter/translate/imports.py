@@ -25,7 +25,7 @@ from porter.rules.groupby import (
     MEAN_DEFINITION, MEAN_FUNCTION, TEXT_ARRAY_DEFINITION, TEXT_ARRAY_FUNCTION,
     TEXT_VALUES_DEFINITION, TEXT_VALUES_FUNCTION,
 )
-from porter.rules.totals import FLOAT_SUM_DEFINITION, FLOAT_SUM_FUNCTION
+from porter.rules.totals import REDUCE_DEFINITION, REDUCE_FUNCTION
 from porter.rules.io_options import (
     CATEGORY_COUNTS_DEFINITION, CATEGORY_COUNTS_FUNCTION,
     CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION, CSV_DURATIONS_CONSTANT, CSV_LISTS_CONSTANT,
@@ -141,7 +141,7 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (GROUP_SUMS_FUNCTION, GROUP_SUMS_DEFINITION),
                                  (GROUP_MEAN_FUNCTION, GROUP_MEAN_DEFINITION),
                                  (MEAN_FUNCTION, MEAN_DEFINITION),
-                                 (FLOAT_SUM_FUNCTION, FLOAT_SUM_DEFINITION),
+                                 (REDUCE_FUNCTION, REDUCE_DEFINITION),
                                  (TEXT_VALUES_FUNCTION, TEXT_VALUES_DEFINITION),
                                  (TEXT_ARRAY_FUNCTION, TEXT_ARRAY_DEFINITION),
                                  (DTYPES_TEXT_FUNCTION, DTYPES_TEXT_DEFINITION),
