@@ -107,3 +107,55 @@ def frame_nunique(call: PandasCall, ctx: RuleContext) -> Value:
         return column.method("n_unique").method("cast", emit.atom("pl.Int64"))
 
     return column_totals(frame, list(frame.columns), distinct, "int")
+
+
+@rule("frame.corr")
+def frame_corr(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.corr() -> pl.corr(a, b) of each pair of columns, as a table labelled by the column
+    names ("index", unnamed in pandas), one row and one column per number column.
+
+    Handles: Pearson's correlation over the rows where both values are present, as pandas
+    pairs them; a column with fewer than two values, or none that vary, gives a missing value
+    (NaN in pandas); min_periods; True/False columns as 1 and 0; numeric_only=True when every
+    column's type is known.
+    Caveats: pandas computes each pair with Welford's running sums, Polars with another
+    order of adding: the last digit can differ (0.47619312 in both to 15 digits) (0.9).
+    method="spearman" / "kendall", and text or date columns (pandas raises) are TODOs.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "method", "min_periods", "numeric_only", positional=1)
+    if call.const("method", 0, "pearson") != "pearson":
+        raise Unsupported("a rank correlation (spearman, kendall): rank the columns first")
+    if frame.columns is None or frame.index or any(frame.dtype(c) is None for c in frame.columns):
+        raise Unsupported("a frame whose column types porter does not know, or with an index "
+                          "of its own")
+    names = list(frame.columns)
+    numbers = [c for c in names if frame.dtype(c) in ("int", "float", "bool")]
+    if call.const("numeric_only", None, False, kinds=(bool,)):
+        names = numbers
+    elif numbers != names:
+        raise Unsupported("text or date columns: pandas raises (numeric_only=True leaves them "
+                          "out)")
+    if not names:
+        raise Unsupported("a frame without number columns")
+    min_periods = call.const("min_periods", None, 1, kinds=(int, type(None))) or 1
+    ctx.lower("pandas adds each pair with Welford's running sums and Polars in another "
+              "order: the last digit of a correlation can differ", 0.9)
+
+    def pair(a: str, b: str) -> Code:
+        value = emit.pl("corr", a, b).method("fill_nan", None)  # NaN in pandas: missing
+        if min_periods > 1:
+            both = emit.binop(emit.col(a).method("is_not_null"), "&",
+                              emit.col(b).method("is_not_null")).method("sum")
+            value = emit.when(emit.binop(both, ">=", min_periods), value)
+        return value.method("alias", b)
+
+    cast = frame.code.method("with_columns", emit.col(names).method(
+        "cast", emit.atom("pl.Float64")))
+    rows = [cast.method("select", emit.pl("lit", a).method("alias", "index"),
+                        *(pair(a, b) for b in names)) for a in names]
+    code = emit.pl("concat", rows)
+    return Frame(code, columns=("index", *names), index=("index",), index_unnamed=True,
+                 labels_intact=False,
+                 dtypes=(("index", "str"), *((c, "float") for c in names)))
