@@ -17,7 +17,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import PandasCall, RuleContext, Unsupported, nullable_mark
-from porter.translate.values import Column, Frame, FrameList, Opaque, Scalar, Value
+from porter.translate.values import NOT_NULLABLE, Column, Frame, FrameList, Opaque, Scalar, Value
 
 HOW = {"inner": "inner", "left": "left", "right": "right", "outer": "full", "cross": "cross"}
 MERGE_PARAMS = ("right", "how", "on", "left_on", "right_on", "left_index", "right_index", "sort",
@@ -121,7 +121,7 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
                        "call reset_index() first")
     before = (lside, rside)
     lside, rside, suffix = _suffixes(args, lside, rside, coalesced, ctx)
-    nullable = _nullable_marks((left, right), before, (lside, rside))
+    nullable = _nullable_marks((left, right), before, (lside, rside), how)
     widened = _int_keys_widened(lside, rside)
     lside, rside = _common_key_types(lside, rside)
 
@@ -242,20 +242,29 @@ _SIDE_MARKS = ("_in_left", "_in_right")
 
 
 def _nullable_marks(frames: tuple[Frame, Frame], before: tuple[_Side, _Side],
-                    after: tuple[_Side, _Side]) -> dict[str, str | None] | None:
+                    after: tuple[_Side, _Side], how: str = "inner"
+                    ) -> dict[str, str | None] | None:
     """Each column of the merged frame that is one of pandas' nullable integers on its side:
     its dtype name ("Int64"), NOT_NULLABLE, or None where porter does not know; None when the
     columns or the marks of a side are not known. A key both sides have is one where both
-    agree."""
+    agree, or one Int64 on one side and a numpy int64 on the other: pandas 3.1 gives the left
+    key's type for an inner or left merge, Int64 for a right or outer one."""
     marks: dict[str, str | None] = {}
-    for frame, old, new in zip(frames, before, after):
+    left_dtypes: dict[str, str | None] = {}
+    for side, (frame, old, new) in enumerate(zip(frames, before, after)):
         if frame.nullable_ints is None or old.columns is None or new.columns is None:
             return None
         for name, renamed in zip(old.columns, new.columns):
             mark = nullable_mark(frame, name)
             if renamed in marks and marks[renamed] != mark:
-                mark = None  # a key of both sides, nullable on one of them
+                first, dtypes = marks[renamed], (left_dtypes.get(renamed), frame.dtype(name))
+                if {first, mark} == {"Int64", NOT_NULLABLE} and dtypes[first == "Int64"] == "int":
+                    mark = first if how in ("inner", "left") else "Int64"
+                else:
+                    mark = None  # a key of both sides, nullable on one of them
             marks[renamed] = mark
+            if side == 0:
+                left_dtypes[renamed] = frame.dtype(name)
     return marks
 
 
