@@ -70,3 +70,22 @@ def test_str_len_of_a_string_column(tmp_path: Path) -> None:
         df.to_csv("o.csv", index=False)
         print(df["len"].sum(), df["len"].max())
         """, tmp_path, DATA)
+
+
+def test_text_tests_of_a_string_column(tmp_path: Path) -> None:
+    # pandas' "string" dtype gives <NA> for a missing value in startswith / contains / match
+    # (its nullable boolean), or `na` when given; the conversion gave False
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("d.csv", dtype={"s": "string"})
+        df["st"] = df["s"].str.startswith("x")
+        df["en"] = df["s"].str.endswith("y", na=True)
+        df["ct"] = df["s"].str.contains("z")
+        df["cf"] = df["s"].str.contains("z", na=False)
+        df["mt"] = df["s"].str.match("y")
+        print(df["st"].sum(), df["ct"].astype(str).tolist(), df["en"].astype(str).tolist())
+        x = df[df["k"] != "q"]
+        print(list(x.index))
+        print(x["st"].astype(str).tolist(), x["mt"].astype(str).tolist(), x["cf"].dtype)
+        df.to_csv("o.csv", index=False)
+        """, tmp_path, DATA)

@@ -673,8 +673,12 @@ def list_repr(items: Code) -> Code:
 
 def predicate(column: Column, code: Code, call: PandasCall, position: int,
               ctx: RuleContext) -> Column:
-    """A boolean test: pandas gives `na` (False by default) for a missing value."""
+    """A boolean test: pandas gives `na` (False by default) for a missing value; on a column
+    porter knows to be pandas' "string" dtype, <NA> by default (its nullable boolean)."""
     na = call.const("na", position, None)
+    if column.nullable_int == "string" and (na is None or isinstance(na, bool)):
+        tested = code if na is None else code.method("fill_null", na)
+        return _replace(_result(column, tested, "bool"), nullable_int="boolean")
     if na is True:
         return _result(column, code.method("fill_null", True), "bool")
     if na is None or na is False or isinstance(na, float) and math.isnan(na):
