@@ -96,12 +96,13 @@ def test_astype_str_of_float32(tmp_path: Path) -> None:
 
 
 def test_a_column_porter_does_not_follow_may_be_nullable(tmp_path: Path) -> None:
-    # read_csv(dtype={"k": "string"}) makes pandas' string dtype, which the read does not mark:
+    # read_csv(dtype="string") makes every column pandas' string dtype, which the read does
+    # not mark (dtype={"k": "string"} is marked: tests/test_nullable_dtypes_read_from_csv.py):
     # the comparison says it may be <NA> where a value is missing
     (tmp_path / "d.csv").write_text("k,v\na,1\n,2\n", encoding="utf-8")
     result = convert("""
         import pandas as pd
-        df = pd.read_csv("d.csv", dtype={"k": "string"})
+        df = pd.read_csv("d.csv", dtype="string")
         df["x"] = df["k"] == "a"
         """, data_dir=str(tmp_path))
     site = next(s for s in result.sites if s.key == "series.compare")

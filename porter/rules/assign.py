@@ -946,6 +946,10 @@ def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower(f"a value computed when the script runs, put into the int column {name!r}: "
                   "pandas keeps int64 when it is a whole number (2.0 is written 2) and refuses "
                   "2.5; here a float makes the column float (2.0)", 0.8)
+    if _missing_into_nullable_int(frame, name, value):
+        # NaN, None or pd.NA into one of pandas' nullable integer columns: a missing value of
+        # the column's own type (Int64 stays Int64, <NA>), not a float column
+        code, dtype = emit.pl("lit", None), "int"
     mark = _loc_mark(frame, name, value, dtype, ctx)
     if isinstance(rows, Opaque) and rows.const == slice(None):
         return set_nullable_ints(with_columns(frame, [(name, code, dtype)]), {name: mark})
@@ -978,6 +982,16 @@ def loc_setitem(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 _SCALARS = (bool, int, float, str, type(None))
+
+
+def _missing_into_nullable_int(frame: Frame, name: str, value: Value) -> bool:
+    """Whether `value` is a missing constant (None, NaN, pd.NA) written into column `name`,
+    which porter knows to be one of pandas' nullable integers (Int64...): pandas keeps the
+    column's type, where a numpy int64 column becomes float64."""
+    given = value.const if isinstance(value, Opaque) and value.is_const else 0
+    missing = given is None or isinstance(given, float) and given != given
+    return missing and frame.columns is not None and name in frame.columns \
+        and nullable_mark(frame, name) in _NULLABLE_INTS
 
 
 def _loc_several(frame: Frame, rows: Value, names: list[str], value: Value,
@@ -1018,6 +1032,8 @@ def _loc_several(frame: Frame, rows: Value, names: list[str], value: Value,
     marks: dict[str, str | None] = {}
     for name, given in zip(names, values):
         code, dtype = _loc_typed(frame, name, given)
+        if _missing_into_nullable_int(frame, name, Opaque(emit.lit(given), const=given)):
+            code, dtype = emit.pl("lit", None), "int"  # the column stays Int64 (<NA>)
         exists = name in frame.columns
         items.append((name, emit.when(mask, code, emit.col(name) if exists else None), dtype))
         marks[name] = _loc_mark(frame, name, Opaque(emit.lit(given), const=given), dtype, ctx)

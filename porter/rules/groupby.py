@@ -21,7 +21,7 @@ from porter.rules.io_options import (
 )
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, check_same_rows, column_names, column_of, derive,
-    grouping_code,
+    grouping_code, nullable_mark,
 )
 from porter.translate import handover
 from porter.translate.values import (
@@ -648,10 +648,13 @@ def group_order(grouped: Grouped) -> list[Code] | None:
     """What to sort groups (or rows in order of first appearance) by, to have pandas' order
     of the groups, where a key is True/False and missing keys are kept; None where sorting
     by the keys with missing ones last gives it."""
-    if grouped.dropna or not any(grouped.frame.dtype(k) == "bool" for k in grouped.keys):
+    # pandas' nullable boolean (dtype="boolean", astype("boolean")) sorts as a number: False,
+    # True, then <NA> last, as sorting by the key with missing ones last does
+    objects = [k for k in grouped.keys if grouped.frame.dtype(k) == "bool"
+               and nullable_mark(grouped.frame, k) != "boolean"]
+    if grouped.dropna or not objects:
         return None
-    return [order_of_bool_key(k) if grouped.frame.dtype(k) == "bool" else emit.col(k)
-            for k in grouped.keys]
+    return [order_of_bool_key(k) if k in objects else emit.col(k) for k in grouped.keys]
 
 
 def _object_bool_sums(grouped: Grouped, exprs: list[Code], ctx: RuleContext) -> None:

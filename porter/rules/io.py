@@ -24,6 +24,7 @@ from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_DURATIONS_CONST
 from porter.analysis.schema import PADDING, PANDAS_FALSE, PANDAS_TRUE
 from porter.rules.datetimes import GUESS_REASON, Strptime, formatted_parse, guessed_parse, strptime_port
 from porter.rules.strings import LIST_STR, list_repr
+from porter.rules.ops import MASKED_DTYPES
 from porter.translate import handover
 from porter.translate.context import (PandasCall, RuleContext, Unsupported, derive,
                                      nullable_columns, select_columns)
@@ -280,7 +281,8 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
             spelled = kind.__name__ if isinstance(kind, type) else str(kind)
             if spelled not in DTYPES:
                 raise ctx.todo(f"dtype {spelled!r} for column {column!r} is not in porter's table")
-            if spelled in NULLABLE_INT_DTYPES:
+            if spelled in NULLABLE_INT_DTYPES or spelled in MASKED_DTYPES:
+                # pandas' nullable types: a hand-over gives them back (<NA>, not None or NaN)
                 nullable[column] = spelled
             overrides[column] = emit.atom(DTYPES[spelled][0])
             dtypes[column] = DTYPES[spelled][1]

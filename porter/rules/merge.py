@@ -17,7 +17,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import PandasCall, RuleContext, Unsupported, nullable_mark
-from porter.translate.values import Column, Frame, FrameList, Opaque, Scalar, Value
+from porter.translate.values import NOT_NULLABLE, Column, Frame, FrameList, Opaque, Scalar, Value
 
 HOW = {"inner": "inner", "left": "left", "right": "right", "outer": "full", "cross": "cross"}
 MERGE_PARAMS = ("right", "how", "on", "left_on", "right_on", "left_index", "right_index", "sort",
@@ -121,7 +121,7 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
                        "call reset_index() first")
     before = (lside, rside)
     lside, rside, suffix = _suffixes(args, lside, rside, coalesced, ctx)
-    nullable = _nullable_marks((left, right), before, (lside, rside))
+    nullable = _nullable_marks((left, right), before, (lside, rside), how)
     widened = _int_keys_widened(lside, rside)
     lside, rside = _common_key_types(lside, rside)
 
@@ -242,20 +242,29 @@ _SIDE_MARKS = ("_in_left", "_in_right")
 
 
 def _nullable_marks(frames: tuple[Frame, Frame], before: tuple[_Side, _Side],
-                    after: tuple[_Side, _Side]) -> dict[str, str | None] | None:
+                    after: tuple[_Side, _Side], how: str = "inner"
+                    ) -> dict[str, str | None] | None:
     """Each column of the merged frame that is one of pandas' nullable integers on its side:
     its dtype name ("Int64"), NOT_NULLABLE, or None where porter does not know; None when the
     columns or the marks of a side are not known. A key both sides have is one where both
-    agree."""
+    agree, or one Int64 on one side and a numpy int64 on the other: pandas 3.1 gives the left
+    key's type for an inner or left merge, Int64 for a right or outer one."""
     marks: dict[str, str | None] = {}
-    for frame, old, new in zip(frames, before, after):
+    left_dtypes: dict[str, str | None] = {}
+    for side, (frame, old, new) in enumerate(zip(frames, before, after)):
         if frame.nullable_ints is None or old.columns is None or new.columns is None:
             return None
         for name, renamed in zip(old.columns, new.columns):
             mark = nullable_mark(frame, name)
             if renamed in marks and marks[renamed] != mark:
-                mark = None  # a key of both sides, nullable on one of them
+                first, dtypes = marks[renamed], (left_dtypes.get(renamed), frame.dtype(name))
+                if {first, mark} == {"Int64", NOT_NULLABLE} and dtypes[first == "Int64"] == "int":
+                    mark = first if how in ("inner", "left") else "Int64"
+                else:
+                    mark = None  # a key of both sides, nullable on one of them
             marks[renamed] = mark
+            if side == 0:
+                left_dtypes[renamed] = frame.dtype(name)
     return marks
 
 
@@ -788,8 +797,10 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
     if columns is not None and columns != union:
         code = code.method("select", *columns)
     dtypes = _concat_dtypes(frames, columns)
+    nullable = _concat_nullable(frames, columns)
     gaps = [c for c in columns or () if dict(dtypes).get(c) == "int"
-            and any(c not in (f.columns or ()) for f in frames)]
+            and any(c not in (f.columns or ()) for f in frames)
+            and not (nullable is not None and nullable.get(c) == "Int64")]
     if gaps:
         # a frame without the column gives it NaN: pandas makes it float64 (an empty such
         # frame too), where Polars' nulls would stay Int64 (written 5 after fillna, pandas 5.0)
@@ -797,9 +808,36 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
             "cast", emit.atom("pl.Float64")))
         dtypes = tuple((c, "float" if c in gaps else t) for c, t in dtypes)
     ctx.stacked_rows = tuple(f.rows for f in frames)
+    marks: dict[str, object] = {} if nullable is None else {
+        "nullable_ints": tuple((c, m) for c, m in nullable.items() if m),
+        "unsure_ints": tuple(c for c, m in nullable.items() if m is None)}
     return Frame(code, columns=columns, dtypes=dtypes, index=index,
                  labels_intact=ignore_index or len(frames) == 1 and frames[0].labels_intact,
-                 sites=tuple(s for f in frames for s in f.sites))
+                 sites=tuple(s for f in frames for s in f.sites), **marks)
+
+
+def _concat_nullable(frames: list[Frame], columns: tuple[str, ...] | None
+                     ) -> dict[str, str | None] | None:
+    """Each column of pd.concat's result that is one of pandas' nullable integers: "Int64"
+    where a piece holds it as Int64 and every other piece as Int64 or a numpy int64, or not
+    at all (pandas 3.1 keeps Int64 and fills a gap with <NA>); NOT_NULLABLE where no piece
+    holds a nullable one; None where porter does not know (other mixes: Int32 beside Int64,
+    Int64 beside float64, which pandas makes Float64). None when a piece's marks or columns
+    are not known."""
+    if columns is None or any(f.nullable_ints is None or f.columns is None for f in frames):
+        return None
+    marks: dict[str, str | None] = {}
+    for name in columns:
+        pieces = [(nullable_mark(f, name), f.dtype(name)) for f in frames if name in f.columns]
+        kinds = {m for m, _ in pieces}
+        if kinds == {NOT_NULLABLE}:
+            marks[name] = NOT_NULLABLE
+        elif "Int64" in kinds and kinds <= {"Int64", NOT_NULLABLE} and all(
+                m == "Int64" or t == "int" for m, t in pieces):
+            marks[name] = "Int64"
+        else:
+            marks[name] = None
+    return marks
 
 
 def _listed_frames(call: PandasCall, ctx: RuleContext) -> tuple[list[Frame], Code | None]:

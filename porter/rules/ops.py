@@ -1210,7 +1210,11 @@ def where_mask(call: PandasCall, ctx: RuleContext) -> Value:
                   "put in makes it Float64 here; when nothing was missing pandas keeps int64 "
                   "(written 3 where Polars writes 3.0)", 0.95)
     frame = column.frame
-    test = ctx.expr(cond, frame).method("fill_null", False)  # missing: False, as pandas has it
+    # missing: False, as pandas' comparisons give it; a condition of pandas' nullable boolean
+    # (a comparison of an Int64 column) holding <NA> replaces the value in both where() and
+    # mask() (mask treats <NA> as True)
+    test = ctx.expr(cond, frame).method(
+        "fill_null", call.name == "mask" and cond.nullable_int == "boolean")
     kept = column.code
     replacement = emit.atom("None") if missing else _branch(other, ctx, frame)
     if call.name == "mask":

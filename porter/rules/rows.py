@@ -538,6 +538,25 @@ def _replace_args(call: PandasCall) -> tuple[object, object] | dict[Any, Any]:
     return to_replace, value
 
 
+def _listed(args: tuple[object, object] | dict[Any, Any]) -> tuple[object, object] | dict[Any, Any]:
+    """s.replace([a, b], v) as {a: v, b: v}, and s.replace([a, b], [v, w]) as {a: v, b: w}:
+    what pandas replaces (a list of values to replace of several types, or lists of other
+    lengths, are left as given)."""
+    if isinstance(args, dict) or not isinstance(args[0], (list, tuple)):
+        return args
+    olds, new = list(args[0]), args[1]
+    if not olds or not all(_hashable(o) for o in olds) or len({type(o) for o in olds}) > 1:
+        return args
+    if isinstance(new, (list, tuple)):
+        return dict(zip(olds, new)) if len(new) == len(olds) and len(set(olds)) == len(olds) \
+            else args
+    return dict.fromkeys(olds, new) if _hashable(new) else args
+
+
+def _values(args: tuple[object, object] | dict[Any, Any]) -> list[object]:
+    return list(args.values()) if isinstance(args, dict) else [args[1]]
+
+
 def _replacement(code: Code, args: tuple[object, object] | dict[Any, Any]) -> Code:
     if isinstance(args, dict):
         return code.method("replace", args)
@@ -567,13 +586,22 @@ def series_replace(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(column, Column)
     ctx.reject_unknown(call, "to_replace", "value", positional=2)
     args = _replace_args(call)
+    if column.dtype in ("str", "float", "int"):
+        args = _listed(args)
+    written_none = any(v is None for v in _values(args))  # None itself, not NaN (below)
+    if column.dtype in ("str", "float") and any(
+            isinstance(v, float) and v != v for v in _values(args)):
+        # NaN (or pd.NA) in place of a value of a text or float column is a missing value of
+        # the column's own type in pandas 3 (str stays str, float64 stays float64): a null
+        # (Polars' NaN would not be missing to is_null, fill_null or a count)
+        args = {k: None if isinstance(v, float) and v != v else v for k, v in args.items()} \
+            if isinstance(args, dict) else (args[0], None)
     old, new = _types(args)
     if old and new and not (old | new) <= {int, float} and old != new:
         raise Unsupported("replacing values with values of another type (text with numbers) "
                           f"{MIXED_COLUMN}")
     code, dtype = column.code, column.dtype
-    replacements = args.values() if isinstance(args, dict) else [args[1]]
-    if any(v is None for v in replacements):
+    if written_none:
         # pandas 3 puts None into a number or True/False column as an object column of the
         # values and None ([3, None, 2], written 3); Int64 with nulls is pandas' float64
         # (written 3.0, listed [3.0, nan, 2.0])

@@ -65,9 +65,12 @@ def string_dtype_possible(ctx: RuleContext) -> bool:
     return found
 
 
-def _counts(result: Column, ctx: RuleContext) -> Column:
+def _counts(result: Column, ctx: RuleContext, column: Column | None = None) -> Column:
     """A count over text (str.len, str.count): float64 in pandas where a value is missing
     (Column.float_int), except on pandas' "string" dtype, whose counts are its nullable Int64."""
+    if column is not None and column.nullable_int == "string":
+        # a column porter knows to be pandas' "string" (dtype={"c": "string"}): Int64, <NA>
+        return _replace(result, nullable_int="Int64")
     if string_dtype_possible(ctx):
         ctx.lower('the script may make pandas\' "string" dtype: on such a column the count is '
                   'pandas\' nullable Int64 (written 4 beside a missing value, where <NA> is), and '
@@ -508,7 +511,7 @@ def str_len(call: PandasCall, ctx: RuleContext) -> Value:
                          "int")
     else:
         result = _result(column, _text(column).method("len_chars").method("cast", INT64), "int")
-    return _counts(result, ctx)
+    return _counts(result, ctx, column)
 
 
 @rule("series.str.zfill")
@@ -670,8 +673,12 @@ def list_repr(items: Code) -> Code:
 
 def predicate(column: Column, code: Code, call: PandasCall, position: int,
               ctx: RuleContext) -> Column:
-    """A boolean test: pandas gives `na` (False by default) for a missing value."""
+    """A boolean test: pandas gives `na` (False by default) for a missing value; on a column
+    porter knows to be pandas' "string" dtype, <NA> by default (its nullable boolean)."""
     na = call.const("na", position, None)
+    if column.nullable_int == "string" and (na is None or isinstance(na, bool)):
+        tested = code if na is None else code.method("fill_null", na)
+        return _replace(_result(column, tested, "bool"), nullable_int="boolean")
     if na is True:
         return _result(column, code.method("fill_null", True), "bool")
     if na is None or na is False or isinstance(na, float) and math.isnan(na):
@@ -857,7 +864,7 @@ def count(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo(f"the pattern {compiled.pattern!r} can match the empty string: each "
                        "engine counts empty matches its own way")
     code = _text(column).method("count_matches", pattern).method("cast", INT64)
-    return _counts(_result(column, code, "int"), ctx)
+    return _counts(_result(column, code, "int"), ctx, column)
 
 
 @rule("series.str.findall")

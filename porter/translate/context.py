@@ -311,6 +311,10 @@ def column_of(frame: Frame, name: str, code: Code | None = None) -> Column:
 ISOCALENDAR_DTYPES = {"series.dt.isocalendar.year": "Int32", "series.dt.isocalendar.week": "UInt32",
                       "series.dt.isocalendar.day": "UInt32"}
 # steps whose result from a nullable integer column may be of any pandas type
+# group windows whose result has the type of the column they run over (pandas 3.1)
+_GROUP_WINDOWS_KEEPING_TYPE = frozenset({
+    "groupby.shift", "groupby.cumsum", "groupby.cumprod", "groupby.cummax", "groupby.cummin",
+    "groupby.diff", "groupby.ffill", "groupby.bfill"})
 _ANY_TYPE = frozenset({"series.apply", "series.map", "series.transform", "series.pipe",
                        "series.agg", "series.aggregate", "series.combine"})
 
@@ -356,6 +360,15 @@ def _nullable_result(key: str, call: PandasCall, result: Value) -> Value:
         return replace(result, nullable_int=ISOCALENDAR_DTYPES[key])
     if result.dtype not in ("int", None):
         return replace(result, nullable_int=NOT_NULLABLE)
+    grouped = call.receiver
+    if key in _GROUP_WINDOWS_KEEPING_TYPE and isinstance(grouped, Grouped) and grouped.single \
+            and grouped.selection is not None and len(grouped.selection) == 1:
+        # a group window of one column (df.groupby("k")["n"].shift()): pandas keeps the
+        # column's type, so Int64 stays Int64 (<NA> where a row has no value before it)
+        mark = nullable_mark(grouped.frame, grouped.selection[0])
+        if mark in ("boolean", "string", "Float64", "Float32"):
+            mark = NOT_NULLABLE
+        return result if mark is None else replace(result, nullable_int=mark)
     given = [call.receiver, *call.args, *call.kwargs.values()]
     inputs = [v.column if isinstance(v, Accessor) else v for v in given]
     # pandas' other nullable types (boolean, string, Float64: rules/ops.py) make no integers
