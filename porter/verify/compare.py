@@ -247,10 +247,6 @@ def compare(expected: object, actual: object, *, rtol: float = 1e-9, atol: float
     left, right = normalize(expected), normalize(actual)
     missing = [c for c in left.columns if c not in right.columns]
     extra = [c for c in right.columns if c not in left.columns]
-    if extra == ["index"] and not missing and _unnamed_labels(expected):
-        # the converted side keeps an unnamed index of labels (describe's "count", "mean"...)
-        # as a column named "index", as reset_index() names it: compare the labels too
-        left, extra = normalize(expected.reset_index()), []  # type: ignore[attr-defined]
     if missing or extra:
         parts = ([f"missing in converted: {', '.join(missing)}"] if missing else []) + (
             [f"extra in converted: {', '.join(extra)}"] if extra else [])
@@ -272,19 +268,6 @@ def compare(expected: object, actual: object, *, rtol: float = 1e-9, atol: float
         return _different_unordered(left, right, rtol, atol, notes) or _different(
             left_sorted, right_sorted, sorted_matches, ["rows compared after sorting", *notes])
     return _different(left, right, matches, notes)
-
-
-def _unnamed_labels(value: object) -> bool:
-    """Whether `value` is a pandas frame or series whose row labels are one unnamed level that
-    is not row numbering (normalize drops them; they may be data, as describe's are)."""
-    if not _is_pandas(value):
-        return False
-    import pandas as pd
-
-    index = getattr(value, "index", None)
-    return isinstance(value, (pd.DataFrame, pd.Series)) and not isinstance(
-        index, (pd.MultiIndex, pd.RangeIndex)) and index.name is None \
-        and "index" not in getattr(value, "columns", ())
 
 
 def _common_types(left: pl.DataFrame, right: pl.DataFrame
