@@ -1347,4 +1347,6 @@ def select_dtypes(call: PandasCall, ctx: RuleContext) -> Value:
         return (not include or bool(selectors & include)) and not selectors & exclude
 
     names = [c for c in frame.columns if picked(kinds[c])]
+    ctx.lower("the columns are picked by the types porter knows: pandas reads a file with a "
+              "header and no rows as text in every column", 0.95)
     return select_columns(frame, frame.code.method("select", *names), names)
