@@ -7,6 +7,33 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_reduce(values, how="sum"):
+    """The sum, mean or std (how="sum" / "mean" / "std") of a float column as pandas
+    computes them: numpy's pairwise sum of the values, a missing one counted 0 in its place;
+    the mean over the count of values present; the std from the squared distances to that
+    mean (0 where a value is missing), added the same way, over count - 1, and its square
+    root. NaN where there are too few values. Polars adds in another order, and the last
+    digit can differ (55.080000000000005 for 55.08000000000001)."""
+    def reduce(column):
+        import numpy as np
+
+        present = column.is_not_null().to_numpy()
+        numbers = column.fill_null(0.0).to_numpy()
+        total = numbers.sum()
+        if how == "sum":
+            return total
+        count = int(present.sum())
+        if how == "mean":
+            return total / count if count else float("nan")
+        if count < 2:
+            return float("nan")
+        squares = (total / count - numbers) ** 2
+        squares[~present] = 0.0
+        return float(np.sqrt(squares.sum() / (count - 1)))
+
+    return values.map_batches(reduce, returns_scalar=True, return_dtype=pl.Float64)
+
+
 def pandas_quantile(column, q):
     """The q quantile of the column's values as pandas computes it (numpy's linear
     interpolation a + (b - a) * t, to the last binary digit and the sign of a zero: Polars'
@@ -56,8 +83,14 @@ stats = pl.concat([
         pl.lit("count").alias("index"),
         pl.selectors.numeric().count().cast(pl.Float64),
     ),
-    season.select(pl.lit("mean").alias("index"), pl.selectors.numeric().mean()),
-    season.select(pl.lit("std").alias("index"), pl.selectors.numeric().std()),
+    season.select(
+        pl.lit("mean").alias("index"),
+        pandas_reduce(pl.selectors.numeric().cast(pl.Float64), how="mean"),
+    ),
+    season.select(
+        pl.lit("std").alias("index"),
+        pandas_reduce(pl.selectors.numeric().cast(pl.Float64), how="std"),
+    ),
     season.select(
         pl.lit("min").alias("index"),
         pl.selectors.numeric().min().cast(pl.Float64),

@@ -31,18 +31,13 @@ PANDAS_CSV_INTS = (
 )
 
 limit = 30
-meters = (
-    pl.scan_csv("meters.csv", null_values=PANDAS_NA_VALUES, infer_schema_length=None)
-    .collect()
-    .lazy()
+meters = pl.scan_csv(
+    "meters.csv",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
 )
-high = (
-    meters
-    .filter(
-        (pl.col("litres") > limit) & (pl.col("village") != "Upper Fold").fill_null(True),
-    )
-    .collect()
-    .lazy()
+high = meters.filter(
+    (pl.col("litres") > limit) & (pl.col("village") != "Upper Fold").fill_null(True),
 )
 mid = meters.filter(pl.col("litres").is_between(10, 30, closed="left"))
 print(

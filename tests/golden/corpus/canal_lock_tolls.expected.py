@@ -525,7 +525,7 @@ def main():
     )
     unpaid.sink_parquet("unpaid_passages.parquet")
 
-    no_tariff = priced.filter(pl.col("toll").is_null()).collect().lazy()
+    no_tariff = priced.filter(pl.col("toll").is_null())
     print(
         "no toll worked out for",
         no_tariff.select(pl.len()).collect().item(),

@@ -635,7 +635,7 @@ cols = ["order_ref", "card", "client", "cooper", "barrel_no", "barrel_kind", "li
     .select(cols)
     .with_columns(
         (
-            pl.selectors.by_name("toast", "toast_minutes", "staves_filled", "avg_lead", require_all=False)
+            pl.selectors.by_name("toast", "toast_minutes", "avg_lead", require_all=False)
             & pl.selectors.integer()
         )
         .cast(pl.String),

@@ -149,12 +149,7 @@ meals = meals.with_columns(
 meals = meals.with_columns(
     cost=(pl.col("portions") * pl.col("unit_price")).fill_nan(None),
 )
-meals = (
-    meals
-    .with_columns(second_helping=(pl.col("portions") > 1).fill_null(False))
-    .collect()
-    .lazy()
-)
+meals = meals.with_columns(second_helping=(pl.col("portions") > 1).fill_null(False))
 
 served = meals.filter(pl.col("portions") > 0).collect().lazy()
 absent = meals.filter(~(pl.col("portions") > 0).fill_null(False))

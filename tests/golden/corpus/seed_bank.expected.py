@@ -210,7 +210,7 @@ def species_summary(tests):
     return summary.pipe(pandas_sort_values, "rate", descending=True)
 
 
-tests = add_rates(load_tests("data/germination_tests.csv")).collect().lazy()
+tests = add_rates(load_tests("data/germination_tests.csv"))
 registry = pl.scan_csv(
     "data/accessions.csv",
     null_values=PANDAS_NA_VALUES,
