@@ -896,9 +896,12 @@ def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
     pandas. A date written in the script (pd.to_datetime("2024-03-01"), format= allowed) is
     the Timestamp pandas reads from it at convert time, as pd.Timestamp. unit="s" / "ms" /
     "us" of a column of numbers is pl.from_epoch; a float column's fractions (nanoseconds in
-    pandas) are cut to the unit (0.9); other units are TODOs.
+    pandas) are cut to the unit (0.9); other units are TODOs. utc=True of text or epoch
+    numbers without a zone of their own: the same times in UTC (_in_utc).
     """
-    ctx.reject_unknown(call, "arg", "errors", "format", "unit", positional=1)
+    ctx.reject_unknown(call, "arg", "errors", "format", "unit", "utc", positional=1)
+    if call.const("utc", None, False, kinds=(bool,)):
+        return _in_utc(call, ctx)
     column = call.arg("arg", 0)
     if call.has("unit"):
         return _from_epoch(call, column, ctx)
@@ -965,6 +968,27 @@ def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
             code = emit.when(emit.binop(code.attr("dt").method("year"), "==", 2069),
                              code.attr("dt").method("offset_by", "-100y"), code)
     return derived_column(column, code, dtype="datetime")
+
+
+def _in_utc(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.to_datetime(..., utc=True) of text or epoch numbers without a zone of their own:
+    the times read as pandas reads them, in UTC (dt.replace_time_zone("UTC")): the same
+    instants, a zone-aware column (written 2024-03-01 10:00:00+00:00)."""
+    column = call.arg("arg", 0)
+    fmt = call.const("format", None, None)
+    if not isinstance(column, Column) or column.dtype not in (None, "str", "int", "float"):
+        raise ctx.todo("utc=True of something other than a column of text or numbers (a "
+                       "column of datetimes may carry a zone of its own)")
+    if isinstance(fmt, str) and re.search(r"%[zZ]", fmt):
+        raise ctx.todo("utc=True with a zone in the format: each value's offset is converted")
+    if column.dtype in (None, "str") and not call.has("unit") and fmt is None:
+        for first in _first_written_values(column, ctx):
+            if re.search(r"[+-]\d\d:?\d\d$|Z$", first):
+                raise ctx.todo("utc=True of text with offsets: each value's offset is converted")
+    local = to_datetime(replace(call, kwargs={k: v for k, v in call.kwargs.items()
+                                              if k != "utc"}), ctx)
+    assert isinstance(local, Column)
+    return replace(local, code=local.code.attr("dt").method("replace_time_zone", "UTC"))
 
 
 # -- durations: pd.Timedelta, pd.to_timedelta, .dt.days, .dt.total_seconds() ------------------
