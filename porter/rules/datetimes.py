@@ -971,7 +971,7 @@ def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 def _in_utc(call: PandasCall, ctx: RuleContext) -> Value:
-    """pd.to_datetime(..., utc=True) of text or epoch numbers without a zone of their own:
+    """pd.to_datetime(..., utc=True) of text read with format= (no %z) or of epoch numbers:
     the times read as pandas reads them, in UTC (dt.replace_time_zone("UTC")): the same
     instants, a zone-aware column (written 2024-03-01 10:00:00+00:00)."""
     column = call.arg("arg", 0)
@@ -982,9 +982,10 @@ def _in_utc(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(fmt, str) and re.search(r"%[zZ]", fmt):
         raise ctx.todo("utc=True with a zone in the format: each value's offset is converted")
     if column.dtype in (None, "str") and not call.has("unit") and fmt is None:
-        for first in _first_written_values(column, ctx):
-            if re.search(r"[+-]\d\d:?\d\d$|Z$", first):
-                raise ctx.todo("utc=True of text with offsets: each value's offset is converted")
+        # text given utc=True is most often text with offsets, which pandas reads value by
+        # value and converts; porter's guess of a format reads none
+        raise ctx.todo("utc=True of text without format=: the text may carry offsets "
+                       "(+02:00), which pandas converts to UTC; give the format to port it")
     local = to_datetime(replace(call, kwargs={k: v for k, v in call.kwargs.items()
                                               if k != "utc"}), ctx)
     assert isinstance(local, Column)
