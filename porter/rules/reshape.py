@@ -699,9 +699,9 @@ def _edge(x: Code, p: float) -> Code:
 
 @rule("frame.T", "frame.transpose")
 def transpose(call: PandasCall, ctx: RuleContext) -> Value:
-    """df.T / df.transpose() of a table of numbers labelled by one text key (describe()'s
-    statistics, a groupby's keys) -> collect().transpose(include_header=True, ...): the
-    column names become the labels (an unnamed index, "index"), the key's values the columns.
+    """df.T / df.transpose() -> collect().transpose(include_header=True, ...), on a table of
+    numbers labelled by one text key (describe()'s statistics, a groupby's keys): the column
+    names become the labels (an unnamed index, "index"), the key's values the columns.
 
     Handles: numbers of one type, or ints beside floats (float64 in both).
     Caveats: frames labelled 0..n-1 (pandas' columns would be the integers), text or date
