@@ -1635,6 +1635,18 @@ def pivot_sorted(code: Code, on: str, keys: list[str], values: str, fill: Any,
     return code
 
 
+@rule("pd.pivot_table")
+def pd_pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.pivot_table(df, values, index, columns, ...) -> as df.pivot_table(values, index,
+    columns, ...): the frame as the first argument (or data=), the rest moved one place."""
+    frame = call.arg("data", 0)
+    if not isinstance(frame, Frame):
+        raise Unsupported("pivoting something other than a frame porter tracks")
+    kwargs = {k: v for k, v in call.kwargs.items() if k != "data"}
+    args = call.args[1:] if "data" not in call.kwargs else call.args
+    return pivot_table(PandasCall(frame, "pivot_table", tuple(args), kwargs, call.node), ctx)
+
+
 @rule("frame.pivot_table")
 def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     """df.pivot_table(index, columns, values, aggfunc, fill_value) -> group_by the keys, then
