@@ -1547,6 +1547,52 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 
+@rule("series.describe")
+def series_describe(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.describe() of numbers -> count, mean, std, min, 25%, 50%, 75%, max as df.describe()
+    computes them for one column: a Series labelled by the statistics, kept as a frame of the
+    labels ("index", unnamed in pandas) and the values (named after the column).
+
+    Handles: missing values skipped; every statistic a float (count too); percentiles
+    interpolated as numpy (pandas_quantile); mean and std added as pandas (pandas_reduce).
+    Caveats: text, True/False, dates (pandas describes them otherwise), a column of unknown
+    type, and percentiles= / include= / exclude= are TODOs.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call)
+    if column.dtype not in ("int", "float"):
+        raise Unsupported("describe of a column not known to hold numbers (pandas describes "
+                          "text, True/False and dates with other statistics)")
+    name = column.name
+    if not isinstance(name, str) or name == "index":
+        raise Unsupported("describe of a Series without a text name")
+    values = column.code
+    as_float = emit.atom("pl.Float64")
+    stats: list[tuple[str, Code]] = [
+        ("count", values.method("count").method("cast", as_float)),
+        # numpy's pairwise sums, as pandas adds (the last digit of Polars' mean and std can
+        # differ)
+        ("mean", pandas_reduce(values.method("cast", as_float), "mean")),
+        ("std", pandas_reduce(values.method("cast", as_float), "std")),
+        ("min", values.method("min").method("cast", as_float)),
+        # numpy's interpolation to the last bit, and the sign of a zero (pandas_quantile)
+        ("25%", emit.call(QUANTILE_FUNCTION, values, 0.25)),
+        ("50%", emit.call(QUANTILE_FUNCTION, values, 0.5)),
+        ("75%", emit.call(QUANTILE_FUNCTION, values, 0.75)),
+        ("max", values.method("max").method("cast", as_float)),
+    ]
+    # pandas labels the statistics in an unnamed index, which reset_index() names "index"
+    parts = [column.frame.code.method("select", emit.pl("lit", label).method("alias", "index"),
+                                      expr.method("alias", name))
+             for label, expr in stats]
+    code = emit.pl("concat", parts)
+    result = Frame(code, columns=("index", name), index=("index",), index_unnamed=True,
+                   labels_intact=False, dtypes=(("index", "str"), (name, "float")))
+    return Column(emit.col(name), frame=result, name=name, dtype="float",
+                  refs=frozenset({name}))
+
+
 @rule("series.quantile")
 def series_quantile(call: PandasCall, ctx: RuleContext) -> Value:
     """Series.quantile(q) -> select(pandas_quantile(expr, q)).collect().item().
