@@ -136,7 +136,8 @@ def test_a_pattern_constant_keeps_its_name() -> None:
 
 TODOS = [
     pytest.param('df["s"].str.extractall(r"(\\w)")', "series.str.extractall", id="extractall"),
-    pytest.param('df["s"].str.cat(sep="|")', "series.str.cat", id="cat"),
+    pytest.param('df["s"].str.cat(df["s"], join="inner")', "series.str.cat",
+                 id="cat with join"),
     pytest.param('df["s"].str.get_dummies(sep=".")', "series.str.get_dummies", id="get_dummies"),
     pytest.param('df["s"].str.split("a.", n=1)', "series.str.split",
                  id="a regex separator with n"),

@@ -30,7 +30,7 @@ from porter.translate.values import (
 
 AGGREGATIONS = ("sum", "mean", "median", "min", "max", "std", "var", "count", "nunique",
                 "first", "last", "size", "any", "all")
-COUNTS = {"count", "nunique", "size"}
+COUNTS = {"count", "nunique", "nunique_all", "size"}
 
 
 # pandas adds the floats of each group with a compensated (Kahan) sum in row order, which no
@@ -172,11 +172,21 @@ def agg_with_sums(code: Code, *exprs: Code, sorted_within: tuple[str, ...] | Non
     and whole numbers as before (floats=False)."""
     inner: list[Code] = []
     after: list[Code] = []
+    masks: list[Code] = []  # min_count: the sum kept where the group has enough values
+    flags: list[str] = []
     for expr in exprs:
+        condition, expr = _min_count_parts(expr)
         split = _own_group_sum(expr, untyped)
+        if split is not None and condition is not None and split[1] == WHOLE_FRAME:
+            split = None
         if split is None:
-            inner.append(expr)
+            inner.append(expr if condition is None else emit.when(condition, expr))
             continue
+        if condition is not None:
+            flag = MIN_COUNT_FLAG + split[1]
+            flags.append(flag)
+            inner.append(condition.method("alias", flag))
+            masks.append(emit.when(emit.col(flag), emit.col(split[1])).method("alias", split[1]))
         values, name, mean, floats = split
         if name == WHOLE_FRAME:  # df.groupby(k).sum() of columns of unknown type
             if sorted_within is not None or in_key_order is not None:
@@ -202,6 +212,8 @@ def agg_with_sums(code: Code, *exprs: Code, sorted_within: tuple[str, ...] | Non
     if not after:
         return code
     code = code.method("with_columns", *after)
+    if masks:
+        code = code.method("with_columns", *masks).method("drop", *flags)
     return code.method("drop", in_key_order) if in_key_order is not None else code
 
 
@@ -246,6 +258,37 @@ def in_key_order_flag(grouped: Grouped, exprs: list[Code],
     # a row with any key missing is dropped by pandas (id -1): it must come first
     complete = emit.unary("~", emit.pl("any_horizontal", emit.pl("col", *keys).method("is_null")))
     return emit.when(complete, emit.pl("struct", *keys)).method("is_sorted")
+
+
+MIN_COUNT_FLAG = "_porter_min_count_"
+
+
+def _min_count_parts(expr: Code) -> tuple[Code | None, Code]:
+    """(the condition, the sum) of with_min_count's pl.when(cond).then(sum), maybe aliased
+    (the alias kept on the sum); (None, expr) for any other expression."""
+    try:
+        node = ast.parse(expr.text, mode="eval").body
+    except SyntaxError:
+        return None, expr
+    alias = None
+    if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
+            and node.func.attr == "alias" and len(node.args) == 1 and not node.keywords:
+        alias, node = node.args[0], node.func.value
+    if not (isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute)
+            and node.func.attr == "then" and len(node.args) == 1 and not node.keywords):
+        return None, expr
+    when = node.func.value
+    if not (isinstance(when, ast.Call) and ast.unparse(when.func) == "pl.when"
+            and len(when.args) == 1 and not when.keywords):
+        return None, expr
+    condition = ast.get_source_segment(expr.text, when.args[0])
+    total = ast.get_source_segment(expr.text, node.args[0])
+    if condition is None or total is None or ".count() >= " not in condition:
+        return None, expr
+    total_code = emit.atom(total)
+    if alias is not None:
+        total_code = total_code.method("alias", ast.literal_eval(alias))
+    return emit.atom(f"({condition})"), total_code
 
 
 def _plain_column(node: ast.expr) -> str | None:
@@ -296,6 +339,18 @@ def _own_group_sum(expr: Code, untyped: Collection[str] = ()) -> tuple[Code, str
     return emit.atom(values), name, node.func.id == GROUP_MEAN_FUNCTION, True
 
 
+def with_min_count(column: Code, total: Code, min_count: int, dtype: str | None) -> Code:
+    """A group's sum `total`, missing where the group has fewer than `min_count` values
+    (pandas' min_count): pl.when(count >= k).then(total). The sum itself is left as it was
+    made (agg_with_sums finds a float sum of its own inside and adds it as pandas adds)."""
+    if dtype == "str":
+        raise Unsupported("min_count of a text sum")
+    # pandas counts the values that are not NaN (Polars' count() counts a NaN)
+    values = column.method("fill_nan", None) if dtype == "float" else column
+    count = values.method("count")
+    return emit.when(emit.binop(count, ">=", min_count), total)
+
+
 def agg_expr(column: Code, how: str, dtype: str | None = None, *, float32: bool = False) -> Code:
     """One pandas aggregation as a Polars expression, with pandas' treatment of missing values.
 
@@ -314,6 +369,8 @@ def agg_expr(column: Code, how: str, dtype: str | None = None, *, float32: bool 
         return column.method("count").method("cast", emit.atom("pl.Int64"))
     if how == "nunique":  # pandas does not count missing values
         return column.method("drop_nulls").method("n_unique").method("cast", emit.atom("pl.Int64"))
+    if how == "nunique_all":  # dropna=False: a missing value (NaN or None) counts as one
+        return column.method("n_unique").method("cast", emit.atom("pl.Int64"))
     if how in ("first", "last"):  # pandas skips missing values
         return column.method(how, ignore_nulls=True)
     if how == "sum" and dtype == "str":  # pandas concatenates text
@@ -715,9 +772,21 @@ def reduce(call: PandasCall, ctx: RuleContext) -> Value:
     grouped = grouped_of(call)
     how = call.name
     allowed = {"numeric_only", "ddof"} if how in ("std", "var") else {"numeric_only"}
+    if how == "nunique":
+        allowed = {"dropna"}
+    if how == "sum":
+        allowed = {"numeric_only", "min_count"}
     ctx.reject_unknown(call, *allowed)
     if call.const("numeric_only", None, False):
         raise Unsupported("numeric_only=True needs the column types")
+    dropna = call.const("dropna", None, True)
+    if dropna not in (True, False):
+        raise Unsupported("dropna computed at run time")
+    if how == "nunique" and dropna is False:
+        how = "nunique_all"  # a missing value (NaN or None, one value to pandas) counts once
+    min_count = call.const("min_count", None, 0)
+    if isinstance(min_count, bool) or not isinstance(min_count, int):
+        raise Unsupported("min_count that is not a literal whole number")
     if how == "size":
         expr = emit.pl("len").method("cast", emit.atom("pl.Int64"))
         if grouped.as_index:
@@ -731,6 +800,8 @@ def reduce(call: PandasCall, ctx: RuleContext) -> Value:
     if columns is None:
         ctx.lower("the non-key columns are not known: text columns would fail in Polars "
                   "(pandas concatenates or raises); run with --data to know them", 0.85)
+        if min_count > 0:
+            raise Unsupported("min_count over columns porter does not know (run with --data)")
         expr = agg_expr(emit.pl("all"), how)
         if how in ("std", "var") and ddof != 1:
             expr = emit.pl("all").method(how, ddof=ddof)
@@ -741,6 +812,11 @@ def reduce(call: PandasCall, ctx: RuleContext) -> Value:
                         float32=float32_possible(ctx))
         if how in ("std", "var") and ddof != 1:
             expr = emit.col(name).method(how, ddof=ddof)
+        if min_count > 0 and grouped.frame.dtype(name) is None:
+            ctx.lower(f"min_count: the type of `{name}` is not known, and a NaN porter does not "
+                      "see as missing would be counted as a value", 0.95)
+        if min_count > 0:
+            expr = with_min_count(emit.col(name), expr, min_count, grouped.frame.dtype(name))
         exprs.append(expr)
     single = grouped.single and len(columns) == 1
     dtypes = [agg_dtype(how, grouped.frame.dtype(name)) if ddof == 1 or how not in ("std", "var")
@@ -810,10 +886,17 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
             column, how = spec.const
             add(column, how_name(Opaque(emit.lit(how), const=how)), name)
         return aggregate(grouped, exprs, names, ctx, dtypes=dtypes)
-    if len(call.args) != 1 or call.kwargs:
+    if len(call.args) != 1:
         raise Unsupported("agg with extra arguments")
     spec_value = call.args[0]
     spec: Any = spec_value.const if isinstance(spec_value, Opaque) and spec_value.is_const else None
+    if call.kwargs:
+        # g["c"].agg("nunique", dropna=False), g["c"].agg("sum", min_count=1): pandas passes
+        # the options to the named method
+        if not (isinstance(spec, str) and spec in ("nunique", "sum")
+                and set(call.kwargs) <= ({"dropna"} if spec == "nunique" else {"min_count"})):
+            raise Unsupported("agg with extra arguments")
+        return reduce(PandasCall(grouped, spec, (), dict(call.kwargs), call.node), ctx)
     if isinstance(spec, dict):
         # any list makes every output a (column, function) pair in pandas: flatten them all
         flattened = any(isinstance(hows, list) for hows in spec.values())
@@ -1464,6 +1547,52 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 
+@rule("series.describe")
+def series_describe(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.describe() of numbers -> count, mean, std, min, 25%, 50%, 75%, max as df.describe()
+    computes them for one column: a Series labelled by the statistics, kept as a frame of the
+    labels ("index", unnamed in pandas) and the values (named after the column).
+
+    Handles: missing values skipped; every statistic a float (count too); percentiles
+    interpolated as numpy (pandas_quantile); mean and std added as pandas (pandas_reduce).
+    Caveats: text, True/False, dates (pandas describes them otherwise), a column of unknown
+    type, and percentiles= / include= / exclude= are TODOs.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call)
+    if column.dtype not in ("int", "float"):
+        raise Unsupported("describe of a column not known to hold numbers (pandas describes "
+                          "text, True/False and dates with other statistics)")
+    name = column.name
+    if not isinstance(name, str) or name == "index":
+        raise Unsupported("describe of a Series without a text name")
+    values = column.code
+    as_float = emit.atom("pl.Float64")
+    stats: list[tuple[str, Code]] = [
+        ("count", values.method("count").method("cast", as_float)),
+        # numpy's pairwise sums, as pandas adds (the last digit of Polars' mean and std can
+        # differ)
+        ("mean", pandas_reduce(values.method("cast", as_float), "mean")),
+        ("std", pandas_reduce(values.method("cast", as_float), "std")),
+        ("min", values.method("min").method("cast", as_float)),
+        # numpy's interpolation to the last bit, and the sign of a zero (pandas_quantile)
+        ("25%", emit.call(QUANTILE_FUNCTION, values, 0.25)),
+        ("50%", emit.call(QUANTILE_FUNCTION, values, 0.5)),
+        ("75%", emit.call(QUANTILE_FUNCTION, values, 0.75)),
+        ("max", values.method("max").method("cast", as_float)),
+    ]
+    # pandas labels the statistics in an unnamed index, which reset_index() names "index"
+    parts = [column.frame.code.method("select", emit.pl("lit", label).method("alias", "index"),
+                                      expr.method("alias", name))
+             for label, expr in stats]
+    code = emit.pl("concat", parts)
+    result = Frame(code, columns=("index", name), index=("index",), index_unnamed=True,
+                   labels_intact=False, dtypes=(("index", "str"), (name, "float")))
+    return Column(emit.col(name), frame=result, name=name, dtype="float",
+                  refs=frozenset({name}))
+
+
 @rule("series.quantile")
 def series_quantile(call: PandasCall, ctx: RuleContext) -> Value:
     """Series.quantile(q) -> select(pandas_quantile(expr, q)).collect().item().
@@ -1550,6 +1679,18 @@ def pivot_sorted(code: Code, on: str, keys: list[str], values: str, fill: Any,
     if float_when_missing:
         return code.method("pipe", emit.atom(UNSTACKED_FUNCTION), index)
     return code
+
+
+@rule("pd.pivot_table")
+def pd_pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.pivot_table(df, values, index, columns, ...) -> as df.pivot_table(values, index,
+    columns, ...): the frame as the first argument (or data=), the rest moved one place."""
+    frame = call.arg("data", 0)
+    if not isinstance(frame, Frame):
+        raise Unsupported("pivoting something other than a frame porter tracks")
+    kwargs = {k: v for k, v in call.kwargs.items() if k != "data"}
+    args = call.args[1:] if "data" not in call.kwargs else call.args
+    return pivot_table(PandasCall(frame, "pivot_table", tuple(args), kwargs, call.node), ctx)
 
 
 @rule("frame.pivot_table")

@@ -27,7 +27,9 @@ from porter.translate import handover
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, accessor_column, check_same_rows, derived_column,
 )
-from porter.translate.values import Column, Frame, Opaque, Parts, Value, fresh_token
+from porter.translate.values import (
+    Column, Frame, Items, Opaque, Parts, Scalar, Value, fresh_token,
+)
 
 INT64 = emit.atom("pl.Int64")
 # pandas' counts over text are float64 once a value is missing (int64 otherwise); Polars keeps
@@ -1097,6 +1099,58 @@ def join(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo("str.join of a column not known to hold lists (pandas puts the separator "
                        "between the characters of text)")
     return _string(column, column.code.attr("list").method("join", sep))
+
+
+@rule("series.str.cat")
+def cat(call: PandasCall, ctx: RuleContext) -> Value:
+    """a.str.cat(b, sep=x) -> pl.concat_str([a, b], separator=x, ignore_nulls=False);
+    s.str.cat(sep=x) -> the column's texts joined into one Python str (str.join(x)).
+
+    Handles: element-wise, a missing value in any input makes the row missing, as in pandas;
+    na_rep=r fills each input's missing values with r first (not ignore_nulls=True, which
+    would drop the separator too); several columns as a list; joined into one text, missing
+    values are skipped (na_rep=r: written as r), no rows give "".
+    Caveats: a Series of another frame (or of other rows: pandas aligns on the index), other
+    list-likes, join= other than "left", and columns of numbers (pandas raises) are TODOs.
+    """
+    column = text_column(call, ctx)
+    ctx.reject_unknown(call, "others", "sep", "na_rep", "join", positional=4)
+    sep = call.const("sep", 1, None, kinds=(str, type(None)))
+    sep = "" if sep is None else sep
+    na_rep = call.const("na_rep", 2, None, kinds=(str, type(None)))
+    if call.const("join", 3, "left", kinds=(str,)) != "left":
+        raise ctx.todo("join= other than \"left\"")
+
+    def text_of(value: Column) -> Code:
+        if value.dtype in ("category", "enum"):
+            code = value.code.method("cast", emit.atom("pl.String"))
+        elif value.dtype in ("str", None):
+            code = value.code
+        else:
+            raise ctx.todo(f"str.cat of a {value.dtype} column (pandas raises: cast it with "
+                           "astype(str) first)")
+        return code if na_rep is None else code.method("fill_null", na_rep)
+
+    others = call.arg("others", 0, None)
+    if others is None or isinstance(others, Opaque) and others.is_const and others.const is None:
+        # every text joined into one; pandas skips the missing values (na_rep: written as it)
+        expr = text_of(column).attr("str").method("join", sep)
+        code = column.frame.code.method("select", expr).method("collect").method("item")
+        agg = Column(expr, frame=column.frame, name=column.name, refs=column.refs,
+                     versions=column.versions)
+        return Scalar(code, pytype="str", agg=agg)
+    parts = list(others.items) if isinstance(others, Items) else [others]
+    if not parts or not all(isinstance(p, Column) for p in parts):
+        raise ctx.todo("others that are not columns of the same frame")
+    for part in parts:
+        check_same_rows(part, column.frame)
+    if any(p.dtype is None for p in (column, *parts)):
+        ctx.lower("a column of unknown type: pandas raises on numbers, Polars writes them as "
+                  "text", 0.95)
+    # a missing value in any input makes the row missing, as pandas (ignore_nulls=False)
+    expr = emit.pl("concat_str", [text_of(column), *(text_of(p) for p in parts)],
+                   separator=sep, ignore_nulls=False)
+    return derived_column(column, expr, dtype="str", others=parts)
 
 
 # -- normalize, and the encode / decode round trip that folds accents -----------------------------
