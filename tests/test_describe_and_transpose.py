@@ -57,3 +57,21 @@ readings = pd.read_csv("readings.csv")
 readings[["cm", "day"]].head(3).T.to_csv("out.csv")
 ''', tmp_path, {"readings.csv": _readings(10)}).converted_text
     assert "TODO(porter)" in text, text
+
+
+@pytest.mark.parametrize("lines", [
+    # two levels of column names become two levels of row labels in pandas
+    'out = readings.groupby("stake").agg({"cm": ["sum", "mean"]}).T.reset_index()',
+    # a pivot's columns are named after its key: pandas' transposed index carries that name
+    'out = readings.pivot_table(index="stake", columns="day", values="cm", aggfunc="sum")'
+    '.T.reset_index()',
+])
+def test_tables_whose_columns_pandas_labels_otherwise_are_transposed_by_pandas(
+        tmp_path: Path, lines: str) -> None:
+    text = same_text(f'''\
+import pandas as pd
+readings = pd.read_csv("readings.csv")
+{lines}
+out.to_csv("out.csv", index=False)
+''', tmp_path, {"readings.csv": _readings(12)}).converted_text
+    assert ".transpose(include_header" not in text, text

@@ -715,6 +715,11 @@ def transpose(call: PandasCall, ctx: RuleContext) -> Value:
     if frame.columns is None or len(frame.index) != 1 or frame.dtype(frame.index[0]) != "str":
         raise Unsupported("a frame not labelled by one text key: the new column names would be "
                           "its row labels")
+    if frame.column_pairs or frame.columns_name is not None or frame.number_labels \
+            or frame.int_labels_except is not None:
+        # two levels of column names (agg with lists) become two levels of row labels, a
+        # pivot's named columns a named index, number labels number rows: pandas' own shapes
+        raise Unsupported("column names of two levels, with a name of their own, or numbers")
     key = frame.index[0]
     values = [c for c in frame.columns if c != key]
     kinds = {frame.dtype(c) for c in values}
