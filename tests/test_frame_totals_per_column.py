@@ -109,3 +109,20 @@ distinct.sort_values().reset_index(name="values").to_csv("distinct.csv", index=F
 def test_reductions_pandas_computes_otherwise_stay_pandas(tmp_path: Path, reduction: str) -> None:
     text = _run(tmp_path, reduction)
     assert "TODO(porter)" in text, text
+
+
+@pytest.mark.parametrize("reduction", [
+    # two levels of column names: pandas labels the totals with two levels
+    'shelves.groupby("shelf").agg({"grams": ["sum", "max"]}).reset_index(drop=True).sum()',
+    # a pivot's columns carry the key's name, which labels pandas' totals
+    'shelves.pivot_table(index="shelf", columns="variety", values="packets", aggfunc="sum")'
+    '.reset_index(drop=True).count()',
+])
+def test_totals_of_columns_pandas_names_otherwise_stay_pandas_shaped(
+        tmp_path: Path, reduction: str) -> None:
+    same_text(f'''\
+import pandas as pd
+shelves = pd.read_csv("shelves.csv")
+result = {reduction}
+result.reset_index().to_csv("result.csv", index=False)
+''', tmp_path, {"shelves.csv": SHELVES})

@@ -1335,8 +1335,9 @@ def select_dtypes(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("select_dtypes with neither include nor exclude (pandas raises)")
     if frame.columns is None or any(frame.dtype(c) is None for c in frame.columns):
         raise Unsupported("a frame with a column whose type porter does not know")
-    if frame.index:
-        raise Unsupported("a frame with an index of its own")
+    if frame.index or frame.column_pairs or frame.number_labels:
+        raise Unsupported("a frame with an index of its own, or column names of two levels or "
+                          "numbers")
     kinds = {c: frame.dtype(c) for c in frame.columns}
     if "bool" in kinds.values() and (include | exclude) & {"object", "O"}:
         raise Unsupported("\"object\" beside a True/False column, which pandas holds as object "

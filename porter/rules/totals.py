@@ -58,8 +58,7 @@ def column_totals(frame: Frame, names: Sequence[str], expr: Callable[[str], Code
     `expr(name)` is the reduction of one column (one value), `dtype` the Series' type."""
     if not names:
         raise Unsupported("a reduction of a frame without columns")
-    if frame.index:
-        raise Unsupported("a frame with an index of its own")
+    _plain_names(frame)
     values = [expr(name).method("alias", name) for name in names]
     code = frame.code.method("select", *values).method(
         "unpivot", variable_name="index", value_name=VALUE)
@@ -68,6 +67,17 @@ def column_totals(frame: Frame, names: Sequence[str], expr: Callable[[str], Code
                    dtypes=(("index", "str"),) + (((VALUE, dtype),) if dtype else ()))
     return Column(emit.col(VALUE), frame=result, name=None, dtype=dtype,
                   refs=frozenset({VALUE}))
+
+
+def _plain_names(frame: Frame) -> None:
+    """A frame whose column names become labels as porter holds them: text of one level."""
+    if frame.index:
+        raise Unsupported("a frame with an index of its own")
+    if frame.column_pairs or frame.columns_name is not None or frame.number_labels \
+            or frame.int_labels_except is not None:
+        # two levels of names (agg with lists) label pandas' result with two levels, a
+        # pivot's named columns give its labels a name, number names are numbers there
+        raise Unsupported("column names of two levels, with a name of their own, or numbers")
 
 
 def pandas_median(column: Code) -> Code:
@@ -127,9 +137,9 @@ def frame_corr(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.reject_unknown(call, "method", "min_periods", "numeric_only", positional=1)
     if call.const("method", 0, "pearson") != "pearson":
         raise Unsupported("a rank correlation (spearman, kendall): rank the columns first")
-    if frame.columns is None or frame.index or any(frame.dtype(c) is None for c in frame.columns):
-        raise Unsupported("a frame whose column types porter does not know, or with an index "
-                          "of its own")
+    if frame.columns is None or any(frame.dtype(c) is None for c in frame.columns):
+        raise Unsupported("a frame whose column types porter does not know")
+    _plain_names(frame)
     names = list(frame.columns)
     numbers = [c for c in names if frame.dtype(c) in ("int", "float", "bool")]
     if call.const("numeric_only", None, False, kinds=(bool,)):
