@@ -39,6 +39,7 @@ B,18,6.0,1
     'by = firings.groupby("kiln")["hours"].sum().rank()\nprint(by["B"], by.loc["A"])',
     'c = firings["pieces"].cumsum()\nprint(c.sort_values().tolist(), c.sort_values().head(2).tolist())',
     's = firings["hours"].shift(-1)\nprint(s.sort_values(ascending=False).tolist())',
+    'c = firings["pieces"].cumsum()\nprint(c.sort_index(ascending=False).tolist())',
 ])
 def test_values_computed_over_all_rows_are_kept(tmp_path: Path, lines: str) -> None:
     text = same_text(f'''\

@@ -785,6 +785,8 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
     """
     from porter.rules.selection import unique_key
     receiver = call.receiver
+    if isinstance(receiver, Column):
+        receiver = values_fixed(receiver)  # a running sum keeps the values of the rows in order
     frame = receiver.frame if isinstance(receiver, Column) else receiver
     assert isinstance(frame, Frame)
     ctx.reject_unknown(call, "axis", "ascending", "kind", "na_position", "inplace",
