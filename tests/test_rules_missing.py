@@ -59,7 +59,7 @@ def test_ports(before: str, expected: str) -> None:
 
 
 TODOS = [
-    pytest.param("r = df.isna().sum()", "frame.isna.sum", id="frame isna per-column counts"),
+    pytest.param("r = df.isna().sum(axis=None)", "frame.isna.sum", id="frame isna one count"),
     pytest.param("r = df.dropna(axis=1)", "frame.dropna", id="dropna columns"),
     pytest.param('s2 = df["a"].fillna("x")', "series.fillna", id="text into a float column"),
     pytest.param('s2 = df["s"].fillna(0)', "series.fillna", id="a number into a text column"),

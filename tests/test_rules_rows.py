@@ -77,7 +77,8 @@ TODOS = [
     pytest.param('s2 = df["n"].replace(1, "one")', "series.replace", id="replace with another type"),
     pytest.param("r = df.replace(np.nan, 0)", "frame.replace",
                  id="frame replace NaN also fills the text columns (object in pandas)"),
-    pytest.param("r = df.sort_index()", "frame.sort_index", id="sort_index"),
+    pytest.param('r = df.sort_values("v", kind="stable").sort_index()', "frame.sort_index",
+                 id="sort_index of original row numbers"),
     pytest.param('r = df["v"].reset_index()', "series.reset_index", id="series labels as a column"),
 ]
 
