@@ -55,6 +55,19 @@ def test_unnamed_plain_index_is_dropped() -> None:
     assert table.height == 2
 
 
+def test_row_labels_carried_as_a_column_are_compared_with_pandas_labels() -> None:
+    # porter carries the labels a filter left (1, 2) as a first column "index" where a later
+    # step reads them: compared with pandas' own labels, as data
+    filtered = SALES[SALES["kg"] > 3]
+    carried = frame(index=[1, 2], city=["Lima", "Oslo"], kg=[5, 4])
+    assert compare(filtered, carried).status == "same"
+    wrong = frame(index=[0, 1], city=["Lima", "Oslo"], kg=[5, 4])  # renumbered: not pandas'
+    assert compare(filtered, wrong).status == "different"
+    # a frame with a column of its own named "index" is not read that way
+    other = SALES.rename(columns={"kg": "index"})
+    assert compare(other, frame(index=[0], city=["x"], kg=[1])).status == "different"
+
+
 def test_unnamed_index_of_labels_is_data() -> None:
     # df.isna().sum(): a Series indexed by the column names, which the reader sees; the
     # converted side holds them as a column "index", as reset_index() names them

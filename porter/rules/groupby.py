@@ -1510,6 +1510,9 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(frame, Frame)
     ctx.reject_unknown(call)
     numeric = emit.atom("pl.selectors.numeric()")
+    if frame.index:
+        # pandas describes the columns, never the index (a groupby's keys, row labels)
+        numeric = emit.binop(numeric, "-", emit.call("pl.selectors.by_name", *frame.index))
     as_float = emit.atom("pl.Float64")
     stats: list[tuple[str, Code]] = [
         ("count", numeric.method("count").method("cast", as_float)),
@@ -1529,7 +1532,7 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
              for name, expr in stats]
     code = emit.pl("concat", parts)
     if frame.columns is not None and len(frame.dtypes) == len(frame.columns) and not any(
-            t in ("int", "float") for _, t in frame.dtypes):
+            t in ("int", "float") for c, t in frame.dtypes if c not in frame.index):
         raise Unsupported("describe of a frame without numeric columns describes text in pandas")
     if any(t == "datetime" for _, t in frame.dtypes):  # (dates are objects: left out)
         raise Unsupported("pandas describes datetime columns too (mean, min, quartiles, max as "
@@ -1538,7 +1541,8 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
                                        and len(frame.dtypes) == len(frame.columns)):
         ctx.lower("a datetime column porter does not know of would be described by pandas too",
                   0.85)
-    numeric_cols = tuple(c for c in frame.columns or () if frame.dtype(c) in ("int", "float")) or None
+    numeric_cols = tuple(c for c in frame.columns or () if frame.dtype(c) in ("int", "float")
+                         and c not in frame.index) or None
     columns = ("index", *numeric_cols) if numeric_cols else None
     # every statistic is a float (count too, as pandas gives it)
     dtypes = (("index", "str"), *((c, "float") for c in numeric_cols or ()))

@@ -27,7 +27,8 @@ def drop_duplicates(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: which row of a duplicate group is kept and the original row order (Polars'
     default keep="any" and unordered output differ); missing values are equal to each other
-    in both.
+    in both; a frame holding pandas' index in columns (a groupby's keys, row labels) compares
+    the other columns only, as pandas leaves the index out.
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
@@ -37,6 +38,14 @@ def drop_duplicates(call: PandasCall, ctx: RuleContext) -> Value:
     if keep not in KEEP:
         raise Unsupported(f"keep={keep!r}")
     names = column_names(subset, "subset") if subset else None
+    ignore_index = bool(call.const("ignore_index", None, False))
+    if frame.index and names is None:
+        # pandas compares the rows' values, never their labels (the keys of a groupby, the
+        # row numbers carried as a column): the columns that are not the index
+        if frame.columns is None:
+            raise Unsupported("a frame with an index of its own whose columns are not known "
+                              "(pass subset=[...])")
+        names = [c for c in frame.columns if c not in frame.index]
     if keep == "last":
         # unique(keep="last", maintain_order=True) holds several copies of the whole frame
         # (three times the peak of keep="first" on a 2,000,000-row frame of nine columns);
@@ -49,7 +58,14 @@ def drop_duplicates(call: PandasCall, ctx: RuleContext) -> Value:
     else:
         args = [emit.names_arg(names)] if names else []
         code = frame.code.method("unique", *args, keep=KEEP[keep], maintain_order=True)
-    return derive(frame, code, same_rows=False, labels_intact=bool(call.const("ignore_index", None, False)))
+    if ignore_index and frame.index:
+        # the labels are dropped: 0..n-1 again
+        code = code.method("drop", *frame.index)
+        columns = None if frame.columns is None else \
+            tuple(c for c in frame.columns if c not in frame.index)
+        return derive(frame, code, same_rows=False, labels_intact=True, index=(),
+                      columns=columns, index_unnamed=False)
+    return derive(frame, code, same_rows=False, labels_intact=ignore_index)
 
 
 @rule("frame.duplicated", "series.duplicated")

@@ -198,6 +198,10 @@ def _unique(sites: list[SiteDraft]) -> list[SiteDraft]:
 
 # -- the walk over statements ---------------------------------------------------------------
 
+# TODOs of calls that read the row labels a filter or sort left (see labels_as_column)
+_LABEL_TODOS = frozenset({"frame.reset_index", "series.reset_index"})
+
+
 class _Walker:
     def __init__(self, services: Services, facts: ImportFacts, emit_code: bool,
                  files: FileChanges | None = None) -> None:
@@ -1580,6 +1584,36 @@ class _Walker:
                 # other rows, or a column it reads overwritten or renamed (a fresh version)
                 self.services.stale_series.add(value.binding)
 
+    def labels_as_column(self, expr: cst.BaseExpression, env: dict[str, Value],
+                         keep_index: bool = True) -> Value | None:
+        """`pos = df[df["a"] > 0]` whose row labels pandas code reads later: the frame the
+        statement reads, whose labels are still 0..n-1, is given its row numbers as a column
+        (with_row_index) held as pandas' unnamed index, and the statement is evaluated again on
+        it, so the filter or sort carries each row's label as pandas does (reset_index() makes
+        it the column "index", idxmax and loc read it, print shows it). None when the statement
+        reads more than one frame, a frame whose labels are renumbered already or whose columns
+        are not known, or when the result leaves a TODO or (keep_index) does not keep the labels
+        as its index."""
+        names = _names_read(self.services.code_for(expr))
+        frames = [n for n in names if isinstance(env.get(n), Frame)]
+        if len(frames) != 1:
+            return None
+        frame = env[frames[0]]
+        assert isinstance(frame, Frame)
+        if not frame.labels_intact or frame.index or frame.columns is None \
+                or "index" in frame.columns or frame.nullable_ints is None:
+            return None
+        code = frame.code.method("with_row_index", "index").method(
+            "with_columns", emit.col("index").method("cast", emit.atom("pl.Int64")))
+        labelled = replace(frame, code=code, columns=("index", *frame.columns), index=("index",),
+                           index_unnamed=True, dtypes=(*frame.dtypes, ("index", "int")))
+        result = Evaluator({**env, frames[0]: labelled}, self.services).eval(expr)
+        if any(site.status == "todo" for site in result.sites):
+            return None
+        if keep_index and not (isinstance(result, Frame) and result.index == ("index",)):
+            return None
+        return result
+
     def made_by_pandas(self, name: str, expr: cst.BaseExpression, env: dict[str, Value],
                        value: Value) -> tuple[str, list[SiteDraft]] | None:
         """`pos = df[df["a"] > 0]` whose row labels pandas code reads later (`pos.index`): a
@@ -1877,9 +1911,19 @@ class _Walker:
         binds_name = isinstance(small, cst.Assign) and len(small.targets) == 1 \
             and isinstance(small.targets[0].target, cst.Name) and small.targets[0].target.value == name \
             or isinstance(small, cst.Expr) and _inplace_call_of(small.value) == name
+        if source is not None and any(site.status == "todo" and site.key in _LABEL_TODOS
+                                      for site in value.sites):
+            # the statement reads the labels a filter or sort made in one chain
+            # (df.sort_values("a").head(3).reset_index()): numbered where the chain starts
+            labelled = self.labels_as_column(source, env, keep_index=False)
+            if labelled is not None:
+                return self.bind(name, labelled, env, indent)
         frame_of = value if isinstance(value, Frame) else value.frame if isinstance(value, Column) else None
         if frame_of is not None and binds_name and not frame_of.labels_intact and not frame_of.index \
                 and self.statement_key in self.services.labels_needed:
+            labelled = self.labels_as_column(small.value, env)  # type: ignore[union-attr]
+            if labelled is not None:
+                return self.bind(name, labelled, env, indent)
             made = self.made_by_pandas(name, small.value, env, value)  # type: ignore[union-attr]
             if made is not None:
                 return made

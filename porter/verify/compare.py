@@ -220,6 +220,17 @@ def _kind(value: object) -> str:
 # comparison
 
 
+def _row_numbers_as_labels(value: object) -> bool:
+    """A pandas frame or Series whose index is one unnamed level of whole numbers (which
+    normalize drops) and that has no column "index"."""
+    if not _is_pandas(value) or not hasattr(value, "index"):
+        return False
+    index = value.index  # type: ignore[attr-defined]
+    columns = getattr(value, "columns", ())
+    return index.nlevels == 1 and index.name is None and "index" not in columns \
+        and index.inferred_type in ("integer", "empty")
+
+
 def compare(expected: object, actual: object, *, rtol: float = 1e-9, atol: float = ABS_TOL,
             ignore_order: bool = False) -> Comparison:
     """Compare the original side's output (`expected`) with the converted side's (`actual`).
@@ -247,6 +258,11 @@ def compare(expected: object, actual: object, *, rtol: float = 1e-9, atol: float
     left, right = normalize(expected), normalize(actual)
     missing = [c for c in left.columns if c not in right.columns]
     extra = [c for c in right.columns if c not in left.columns]
+    if extra == ["index"] and not missing and _row_numbers_as_labels(expected):
+        # the converted frame carries pandas' row labels (the row numbers a filter or sort
+        # left) as a column "index", where pandas holds them as its index: compared as data
+        left = normalize(expected.reset_index())  # type: ignore[union-attr]
+        extra = []
     if missing or extra:
         parts = ([f"missing in converted: {', '.join(missing)}"] if missing else []) + (
             [f"extra in converted: {', '.join(extra)}"] if extra else [])

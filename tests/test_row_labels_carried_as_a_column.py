@@ -1,0 +1,77 @@
+"""Row labels after a filter or sort carried as a column, checked against pandas (the reference
+implementation).
+
+When pandas code reads the labels a filter or sort left (reset_index(), idxmax, loc by label,
+`list(df.index)`), porter numbers the rows where their labels are still 0..n-1
+(with_row_index) and keeps that number as pandas' unnamed index, so the rest stays Polars.
+Frames that hold their index in columns (a groupby's keys, these labels) leave it out where
+pandas does: drop_duplicates compares the other columns, describe describes them.
+The data is an invented ferry line's crossing log; --data is given so porter knows the
+columns.
+"""
+
+from __future__ import annotations
+
+import pytest
+
+from support import differential
+
+LOG = ("boat,leg,cars,fare\nOrm,north,12,5.5\nSkarv,south,-3,4.0\nOrm,north,7,\n"
+       "Lunde,east,0,6.25\n,south,9,3.0\nSkarv,north,15,5.5\nLunde,south,4,2.0\nÖrn,north,7,\n")
+
+
+@pytest.fixture(autouse=True)
+def crossings(tmp_path, monkeypatch):
+    (tmp_path / "crossings.csv").write_text(LOG, encoding="utf-8")
+    monkeypatch.chdir(tmp_path)
+
+
+HEAD = 'import pandas as pd\ndf = pd.read_csv("crossings.csv")\n'
+
+
+def keys(result) -> list[str]:
+    return [site.key for site in result.sites if site.status == "todo"]
+
+
+@pytest.mark.parametrize("body", [
+    # a filter, a sort with ties, then the labels as a column
+    'pos = df[df["cars"] > 0]\npos = pos.sort_values("fare", kind="stable")\n'
+    'result = pos.reset_index()\n',
+    # two filters in two statements, a new column between them
+    'pos = df[df["cars"] > 0]\npos["double"] = pos["cars"] * 2\npos = pos[pos["leg"] != "east"]\n'
+    'result = pos.reset_index()\n',
+    # the labels as a list
+    'pos = df.sort_values(["leg", "cars"], kind="stable")\nresult = list(pos.index)\n',
+    # head of a sorted frame, its labels written out
+    'result = df.sort_values("cars", ascending=False).head(3).reset_index()\n',
+])
+def test_labels_after_filters_and_sorts_stay_polars(body: str) -> None:
+    result = differential(HEAD + body, data_dir=".")
+    assert "frame.labels" not in keys(result)
+    assert ".to_pandas()" not in result.converted_text
+
+
+def test_a_read_by_a_label_kept_in_a_name_hands_over_only_that_read() -> None:
+    # pos.loc[best, "boat"] by a label held in a name is still pandas' (a TODO), on the
+    # frame with its labels set again from the column; the filter and idxmax are Polars
+    result = differential(HEAD + 'pos = df.dropna(subset=["boat"])\nbest = pos["cars"].idxmax()\n'
+                          'result = pos.loc[best, "boat"]\n', data_dir=".")
+    assert keys(result) == ["frame.loc"]
+    assert 'set_index("index")' in result.converted_text
+
+
+@pytest.mark.parametrize("body", [
+    'result = pos.drop_duplicates()\n',
+    'result = pos.drop_duplicates(keep="last")\n',
+    'result = pos.drop_duplicates(ignore_index=True)\n',
+    'result = pos.describe()\n',
+    'result = pos[["cars"]].drop_duplicates().reset_index()\n',
+])
+@pytest.mark.parametrize("made", [
+    # labels left by a filter, read later
+    'pos = df[df["fare"].notna()]\nlabels = list(pos.index)\n',
+    # a groupby's keys held as the index (numbers: describe must leave them out)
+    'pos = df.assign(n=df["cars"] % 2).groupby("n").agg(cars=("cars", "max"), fare=("fare", "max"))\n',
+])
+def test_the_index_is_left_out_where_pandas_leaves_it_out(made: str, body: str) -> None:
+    differential(HEAD + made + body, data_dir=".")
