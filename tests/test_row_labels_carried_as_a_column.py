@@ -40,6 +40,9 @@ def keys(result) -> list[str]:
     # two filters in two statements, a new column between them
     'pos = df[df["cars"] > 0]\npos["double"] = pos["cars"] * 2\npos = pos[pos["leg"] != "east"]\n'
     'result = pos.reset_index()\n',
+    # each group's label of its largest value, and the rows they label
+    'pos = df[df["cars"] > 0]\nresult = pos.groupby("boat")["cars"].idxmax()\n',
+    'pos = df[df["cars"] > 0]\nresult = pos.loc[pos.groupby("leg")["cars"].idxmin()].reset_index()\n',
     # the labels as a list
     'pos = df.sort_values(["leg", "cars"], kind="stable")\nresult = list(pos.index)\n',
     # head of a sorted frame, its labels written out

@@ -1789,6 +1789,12 @@ def ngroups(call: PandasCall, ctx: RuleContext) -> Value:
     return Scalar(code, pytype="int")
 
 
+def row_labels_carried(frame: Frame) -> bool:
+    """Whether `frame` holds the row labels a filter or sort left (integers, pandas' unnamed
+    index) in its column "index" (engine.labels_as_column)."""
+    return frame.index == ("index",) and frame.index_unnamed and frame.dtype("index") == "int"
+
+
 @dataclass(frozen=True)
 class ExtremeLabels(Column):
     """g["c"].idxmin() / idxmax(): each group's row label of its smallest / largest value (the
@@ -1808,9 +1814,10 @@ def group_extreme_labels(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: missing values skipped; the first of equal values; df.loc[these, cols] of the
     same frame as a filter of each group's row, in the keys' order.
-    Caveats: a frame whose labels are no longer 0..n-1, several columns, sort=False, keys
-    kept (dropna=False) and skipna=False are TODOs; a group whose values are all missing makes
-    pandas raise, here its label is missing (0.95).
+    Handles too: a frame carrying the labels a filter or sort left (its column "index").
+    Caveats: another index, several columns, sort=False, keys kept (dropna=False) and
+    skipna=False are TODOs; a group whose values are all missing makes pandas raise, here its
+    label is missing (0.95).
     """
     grouped = grouped_of(call)
     ctx.reject_unknown(call, "skipna", "numeric_only")
@@ -1819,18 +1826,20 @@ def group_extreme_labels(call: PandasCall, ctx: RuleContext) -> Value:
     frame = grouped.frame
     if not (grouped.single and grouped.selection):
         raise Unsupported("the labels of several columns (select one column first)")
-    if not frame.labels_intact or frame.index or grouped.pandas is not None:
+    carried = row_labels_carried(frame)
+    if not (frame.labels_intact and not frame.index or carried) or grouped.pandas is not None:
         raise Unsupported("the frame's row labels are no longer 0..n-1: keep the row number as "
                           "a column (with_row_index) where the frame is made")
     if not (grouped.sort and grouped.dropna and grouped.as_index):
         raise Unsupported("groupby options other than the defaults")
     column = grouped.selection[0]
-    if frame.columns is not None and "index" in frame.columns:
+    if not carried and frame.columns is not None and "index" in frame.columns:
         raise Unsupported("the frame has a column named \"index\"")
     ctx.lower("a group whose values are all missing makes pandas raise; its label is missing "
               "here", 0.95)
     how = call.name.removeprefix("idx")
-    numbered = frame.code.method("with_row_index").method(
+    # the labels: the row numbers, or those a filter or sort left, carried as "index"
+    numbered = frame.code if carried else frame.code.method("with_row_index").method(
         "with_columns", emit.col("index").method("cast", emit.atom("pl.Int64")))
     keyed = replace(grouped, code=numbered, frame=replace(frame, code=numbered), selection=None,
                     single=False, sites=())

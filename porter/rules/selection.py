@@ -316,7 +316,7 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     frame = frame_of(call)
     rows = call.args[0]
     cols = call.args[1] if len(call.args) > 1 else None
-    from porter.rules.groupby import ExtremeLabels, RowPosition, scalar_of
+    from porter.rules.groupby import ExtremeLabels, RowPosition, row_labels_carried, scalar_of
     if isinstance(rows, RowPosition) and rows.rows == frame.rows \
             and isinstance(cols, Opaque) and isinstance(cols.const, str):
         # df.loc[df["kg"].idxmax(), "boat"]: the value on the row the label was read from
@@ -326,7 +326,7 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
         return scalar_of(column, column.code.method("get", rows.position),
                          column.dtype if column.dtype in ("int", "float") else None)
     if isinstance(rows, ExtremeLabels) and rows.source.rows == frame.rows \
-            and frame.labels_intact and not frame.index:
+            and (frame.labels_intact and not frame.index or row_labels_carried(frame)):
         # df.loc[df.groupby(k)["c"].idxmin()]: each group's row of its first smallest value,
         # in the order of the keys (the labels' Series is sorted by them)
         keys = emit.names_arg(rows.keys)
