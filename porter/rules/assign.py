@@ -1133,6 +1133,8 @@ def astype(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(target, Opaque) and isinstance(target.const, dict):
         if not all(isinstance(name, str) for name in target.const):
             raise Unsupported("columns named by something other than text")
+        if any(name in receiver.index for name in target.const):
+            raise Unsupported("a key pandas keeps in the index (pandas raises KeyError)")
         items = []
         for name, kind in target.const.items():
             column = Column(emit.col(name), frame=receiver, name=name, dtype=receiver.dtype(name))
@@ -1143,12 +1145,14 @@ def astype(call: PandasCall, ctx: RuleContext) -> Value:
     if receiver.columns is None:
         raise Unsupported("casting every column needs the column names (use a dict, or --data)")
     items = []
-    for name in receiver.columns:
+    # the columns, never the index (a groupby's keys, row labels), which pandas leaves as it is
+    names = [name for name in receiver.columns if name not in receiver.index]
+    for name in names:
         column = Column(emit.col(name), frame=receiver, name=name, dtype=receiver.dtype(name))
         code, dtype = cast_expr(column, target, ctx)
         items.append((name, code, dtype))
     return set_nullable_ints(with_columns(receiver, items),
-                             dict.fromkeys(receiver.columns, cast_mark(target)))
+                             dict.fromkeys(names, cast_mark(target)))
 
 
 def cast_mark(target: Value) -> str | None:

@@ -346,7 +346,11 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(cols, Opaque) and isinstance(cols.const, str):
         return column_by_key(frame, cols, ctx)
     if isinstance(cols, Opaque) and isinstance(cols.const, list) and all(isinstance(c, str) for c in cols.const):
-        return select_columns(frame, frame.code.method("select", *cols.const), cols.const)
+        if any(c in frame.index for c in cols.const):
+            raise Unsupported("a column pandas keeps in the index (pandas raises KeyError)")
+        # the index (a groupby's keys, row labels) stays with the rows, as pandas keeps it
+        names = [*frame.index, *cols.const]
+        return select_columns(frame, frame.code.method("select", *names), names)
     if isinstance(cols, Opaque) and isinstance(cols.const, slice):
         return _column_label_slice(frame, cols.const)
     raise Unsupported("columns chosen by something other than names")
