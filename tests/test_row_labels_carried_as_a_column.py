@@ -54,11 +54,23 @@ def test_labels_after_filters_and_sorts_stay_polars(body: str) -> None:
     assert ".to_pandas()" not in result.converted_text
 
 
-def test_a_read_by_a_label_kept_in_a_name_hands_over_only_that_read() -> None:
-    # pos.loc[best, "boat"] by a label held in a name is still pandas' (a TODO), on the
-    # frame with its labels set again from the column; the filter and idxmax are Polars
+@pytest.mark.parametrize("made", [
+    'pos = df.dropna(subset=["boat"])\n',  # labels a filter left, carried
+    'pos = df\n',  # labels 0..n-1
+])
+def test_a_label_kept_in_a_name_reads_its_row(made: str) -> None:
+    # best = s.idxmax() then pos.loc[best, "boat"]: the row the label was read from
+    result = differential(HEAD + made + 'best = pos["cars"].idxmax()\n'
+                          'result = [best, pos.loc[best, "boat"]]\n', data_dir=".")
+    assert keys(result) == []
+
+
+def test_a_label_kept_in_a_name_after_its_column_changed_is_pandas_read() -> None:
+    # the column the label was the largest of changed since: its row is not found again by
+    # the largest value, so the read by label stays pandas' (with the labels set again)
     result = differential(HEAD + 'pos = df.dropna(subset=["boat"])\nbest = pos["cars"].idxmax()\n'
-                          'result = pos.loc[best, "boat"]\n', data_dir=".")
+                          'pos["cars"] = -pos["cars"]\nresult = pos.loc[best, "boat"]\n',
+                          data_dir=".")
     assert keys(result) == ["frame.loc"]
     assert 'set_index("index")' in result.converted_text
 

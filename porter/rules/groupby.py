@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import ast
 from dataclasses import dataclass, field, replace
-from typing import Any, Collection
+from typing import Any, ClassVar, Collection
 
 import libcst as cst
 
@@ -1860,6 +1860,15 @@ class RowPosition(Scalar):
 
     rows: int = field(kw_only=True)
     position: Code = field(kw_only=True)
+    # the versions of the columns `position` reads: a column overwritten since (same rows)
+    # gives another position
+    read: tuple[tuple[str, int], ...] = field(default=(), kw_only=True)
+    # `best = s.idxmax()` then `df.loc[best, "c"]`: the position is computed in the frame again
+    kept_when_bound: ClassVar[bool] = True
+
+    def current_in(self, frame: Frame) -> bool:
+        """Whether `position` still points at the row the label was read from in `frame`."""
+        return self.rows == frame.rows and all(frame.version(n) == v for n, v in self.read)
 
 
 @rule("series.idxmax", "series.idxmin")
@@ -1898,7 +1907,8 @@ def series_extreme_label(call: PandasCall, ctx: RuleContext) -> Value:
               "here", 0.95)
     pytype = "int" if not frame.index else {"int": "int", "str": "str"}.get(frame.dtype(frame.index[0]) or "")
     return RowPosition(frame.code.method("select", label).method("collect").method("item"),
-                       pytype=pytype, rows=frame.rows, position=position)
+                       pytype=pytype, rows=frame.rows, position=position,
+                       read=tuple(column.versions))
 
 
 @rule("frame.pivot")

@@ -317,7 +317,7 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     rows = call.args[0]
     cols = call.args[1] if len(call.args) > 1 else None
     from porter.rules.groupby import ExtremeLabels, RowPosition, row_labels_carried, scalar_of
-    if isinstance(rows, RowPosition) and rows.rows == frame.rows \
+    if isinstance(rows, RowPosition) and rows.current_in(frame) \
             and isinstance(cols, Opaque) and isinstance(cols.const, str):
         # df.loc[df["kg"].idxmax(), "boat"]: the value on the row the label was read from
         column = column_by_key(frame, cols, ctx)

@@ -2066,6 +2066,8 @@ class _Walker:
                     value.frame, code=value.frame.code.method("collect").method("lazy")))
             code = grouping_code(value)
             env[name] = replace(value, code=emit.atom(name), prepared=True, sites=())
+        elif isinstance(value, Scalar) and value.kept_when_bound:
+            env[name] = replace(value, code=emit.atom(name), sites=())
         elif isinstance(value, Scalar):
             env[name] = Scalar(emit.atom(name), pytype=value.pytype)
         elif isinstance(value, PandasValue):

@@ -8,7 +8,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field, replace
 import itertools
-from typing import Any
+from typing import Any, ClassVar
 
 from porter.emit.code import Code
 from porter.model import SiteDraft
@@ -160,6 +160,10 @@ class Grouped(Value):
 @dataclass(frozen=True)
 class Scalar(Value):
     """A plain Python value computed from a frame (already collected in `code`)."""
+
+    # kept as it is (only its code becomes the name) when bound to a name: what it says holds
+    # for as long as its frame's rows do (a row label's position: rules/groupby.RowPosition)
+    kept_when_bound: ClassVar[bool] = False
 
     pytype: str | None = field(default=None, kw_only=True)
     agg: Column | None = field(default=None, kw_only=True)  # the reduction as an expression of its frame
