@@ -1,9 +1,12 @@
-"""Which call arguments go to a plotting library (matplotlib, seaborn), however the script
-spells its imports and its figures.
+"""Which call arguments go to a plotting library (matplotlib, seaborn) or a modelling one
+(scikit-learn, SciPy, statsmodels), however the script spells its imports, its figures and its
+models.
 
-A pandas frame or Series given to one of these is handed over to pandas on purpose: Polars has
-no plotting that draws the same picture, and both libraries read pandas objects (seaborn's
-`data=`, the names of the Series it labels its axes with). The site is a hand-over, not a TODO.
+A pandas frame or Series given to one of these is handed over to pandas on purpose. Polars has
+no plotting that draws the same picture, and both plotting libraries read pandas objects
+(seaborn's `data=`, the names of the Series it labels its axes with). The modelling libraries
+take pandas objects as they are (scikit-learn keeps a frame's column names as the feature
+names) and turn them into arrays. The site is a hand-over, not a TODO.
 """
 
 from __future__ import annotations
@@ -12,6 +15,14 @@ import libcst as cst
 from libcst.helpers import get_full_name_for_node
 
 PLOTTING_MODULES = ("matplotlib", "seaborn")
+MODELLING_MODULES = ("sklearn", "scipy", "statsmodels")
+# scikit-learn methods and functions that turn what they are given into arrays of its values
+# (a frame's column names kept as feature names), never reading its row labels
+ARRAY_METHODS = frozenset({
+    "fit", "predict", "predict_proba", "predict_log_proba", "transform", "fit_transform",
+    "fit_predict", "inverse_transform", "score", "partial_fit", "decision_function",
+    "score_samples",
+})
 
 # matplotlib functions (and Axes methods) that draw the values they are given and never read a
 # Series' row labels
@@ -25,7 +36,19 @@ LINES = frozenset({"plot", "step", "semilogx", "semilogy", "loglog"})
 
 
 def _plotting(module: str) -> bool:
-    return any(module == m or module.startswith(m + ".") for m in PLOTTING_MODULES)
+    """Whether `module` is one whose calls take pandas values handed over (the name is the
+    plotting libraries', where this began)."""
+    return any(module == m or module.startswith(m + ".")
+               for m in (*PLOTTING_MODULES, *MODELLING_MODULES))
+
+
+def library(callee: str) -> str:
+    """The library a resolved callee belongs to: "matplotlib", "seaborn", "sklearn", ..."""
+    return callee.split(".")[0].split(" ")[0]
+
+
+def plots(callee: str) -> bool:
+    return library(callee) in PLOTTING_MODULES
 
 
 class _Collector(cst.CSTVisitor):
@@ -57,11 +80,15 @@ class _Collector(cst.CSTVisitor):
             self.names[local] = f"{module}.{name}"
 
     def visit_Assign(self, node: cst.Assign) -> None:
-        # `fig, ax = plt.subplots()`, `ax = fig.add_subplot(...)`: figures and axes
-        if isinstance(node.value, cst.Call) and self.resolve(node.value.func) is not None:
+        # `fig, ax = plt.subplots()`, `ax = fig.add_subplot(...)`: figures and axes;
+        # `model = LinearRegression()`, `pipe = make_pipeline(...)`: models
+        callee = self.resolve(node.value.func) if isinstance(node.value, cst.Call) else None
+        if callee is not None:
+            kind = "matplotlib figure" if library(callee) in PLOTTING_MODULES \
+                else f"{library(callee)} object"
             for target in node.targets:
                 for name in _names(target.target):
-                    self.names[name] = "matplotlib figure"
+                    self.names[name] = kind
 
     def visit_Call(self, node: cst.Call) -> None:
         callee = self.resolve(node.func)
@@ -81,6 +108,8 @@ class _Collector(cst.CSTVisitor):
                 node = node.value
             elif isinstance(node, cst.Subscript):  # axes[0].plot
                 node = node.value
+            elif isinstance(node, cst.Call):  # LinearRegression().fit
+                node = node.func
             else:
                 break
         if not isinstance(node, cst.Name) or node.value not in self.names:
@@ -91,6 +120,15 @@ class _Collector(cst.CSTVisitor):
 def _reads_labels(callee: str, call: cst.Call):  # type: ignore[no-untyped-def]
     """Whether the call may read the row labels of the pandas value given as `arg`."""
     function = callee.split(".")[-1]
+    if library(callee) == "sklearn":
+        # a model's fit / predict / transform and the metrics take the values (and a frame's
+        # column names); a splitter (train_test_split) returns pandas objects with their labels
+        values = function in ARRAY_METHODS or callee.startswith("sklearn.metrics")
+        return lambda arg: not values
+    if library(callee) == "scipy":
+        return lambda arg: False  # SciPy's functions take arrays of the values
+    if library(callee) == "statsmodels":
+        return lambda arg: True  # formulas and results keep the frame's row labels
     if callee.startswith("seaborn"):
         # data=frame with the columns named: seaborn reads the named columns' values (without
         # x= and y= it draws a wide frame against its row labels; vectors are aligned on them)
@@ -117,8 +155,8 @@ def _names(target: cst.BaseExpression) -> list[str]:
 
 
 def plotting_arguments(module: cst.Module) -> dict[int, tuple[str, bool]]:
-    """The arguments (by node id) of every call into a plotting library, with the callee and
-    whether it may read the row labels of a Series or frame given there."""
+    """The arguments (by node id) of every call into a plotting or modelling library, with the
+    callee and whether it may read the row labels of a Series or frame given there."""
     collector = _Collector()
     module.visit(collector)
     return collector.arguments

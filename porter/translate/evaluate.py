@@ -17,6 +17,7 @@ from typing import Any
 import libcst as cst
 
 from porter.analysis import pandas_names
+from porter.analysis.consumers import library, plots
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.mapping import MappingTable
@@ -159,6 +160,9 @@ class Services:
     frame_lists_refused: set[str] = field(default_factory=set)
     frame_list_members: dict[str, list[Frame]] = field(default_factory=dict)
 
+
+# how the libraries whose calls take pandas values are named in site messages
+LIBRARY_NAMES = {"sklearn": "scikit-learn", "scipy": "SciPy"}
 
 class Evaluator:
     def __init__(self, env: dict[str, Value], services: Services) -> None:
@@ -1097,18 +1101,23 @@ class Evaluator:
         site = SiteDraft("handover.unknown_code", "handover", "todo", 0.0, message, line, end_line)
         if plotting is not None:
             # Polars has no plotting that draws the same picture: pandas' objects are what the
-            # library reads (values, the Series' names on the axes, the row labels as x)
-            library = plotting.split(".")[0].split(" ")[0]
-            confidence, message = 1.0, (f"given to {library} ({plotting.split('.')[-1]}), which "
-                                        "draws from pandas objects: handed over with "
-                                        ".collect().to_pandas()")
+            # library reads (values, the Series' names on the axes, the row labels as x); a
+            # modelling library takes them as they are and makes arrays of them
+            name = library(plotting)
+            draws = plots(plotting)
+            confidence, message = 1.0, (
+                f"given to {LIBRARY_NAMES.get(name, name)} ({plotting.split('.')[-1]}), which "
+                + ("draws from pandas objects" if draws else "takes pandas objects")
+                + ": handed over with .collect().to_pandas()")
             if frame is not None and not frame.labels_intact and not frame.index \
                     and whole is None and reads_labels:
                 confidence = 0.8
                 message += (". Its row labels are renumbered 0..n-1 (pandas kept the original row "
-                            "numbers after the filter or sort): a plot of one Series draws them "
-                            "as its x values")
-            site = SiteDraft("handover.plotting", "plotting", "handover", confidence, message,
+                            "numbers after the filter or sort): "
+                            + ("a plot of one Series draws them as its x values" if draws else
+                               "what it returns is labelled by them"))
+            site = SiteDraft("handover.plotting" if draws else "handover.library",
+                             "plotting" if draws else "library", "handover", confidence, message,
                              line, end_line)
         return PandasValue(code, sites=value.sites + (site,))
 
