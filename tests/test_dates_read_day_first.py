@@ -1,0 +1,146 @@
+"""pd.to_datetime(col, dayfirst=True) without format=, several formats in one column, and the
+frame s.dt.isocalendar() makes.
+
+pandas is the reference implementation: every differential check runs the snippet with pandas
+and its conversion with Polars and compares the variables they computed.
+"""
+
+from __future__ import annotations
+
+import itertools
+import re
+import warnings
+
+import pandas as pd
+import polars as pl
+import pytest
+
+from support import convert, differential, run
+
+HEAD = "import numpy as np\nimport pandas as pd\n"
+
+# pandas 3.1 guesses ONE format from the first value that is not missing (day first where the
+# value reads that way) and reads every value with it; the others are NaT (coerce) or an error
+DAY_FIRST = [
+    # 01/05/2024 is the 1st of May; 05/13/2024 does not fit %d/%m/%Y
+    pytest.param('["01/05/2024", "13/01/2024", "05/13/2024", None, "", "NaT", "31/12/2023",'
+                 ' "x", "02/30/2024", "29/02/2024", "ünï", "1/2/2024", " 3/4/2024"]',
+                 "coerce", id="day first"),
+    # a first value that does not read day first keeps pandas' month-first format
+    pytest.param('["05/13/2024", "01/05/2024", "14/02/2024", None, "12/31/2024"]', "coerce",
+                 id="month first from the first value"),
+    # an ISO date is read day first too: 2024-01-05 is %Y-%d-%m, 2024-01-13 does not fit it
+    pytest.param('["2024-01-05", "2024-01-13", "2024-12-11", None, "2024-05-01 10:00"]',
+                 "coerce", id="ISO dates day first"),
+    pytest.param('["2024-01-31", "2024-01-05", "2024-13-01", "nan"]', "coerce",
+                 id="ISO dates month first from the first value"),
+    pytest.param('["2024-13-05T07:05:09", "2024-01-05T07:05:09", "2024-05-01T00:00:00.5"]',
+                 "coerce", id="ISO date-times"),
+    pytest.param('["2024/01/05", "2024/13/01", "2024/12/12"]', "coerce", id="year first slashes"),
+    pytest.param('["01.05.2024", "13.01.2024", "01/05/2024"]', "coerce",
+                 id="dots"),
+    pytest.param('["01/05/2024 10:30", "13/01/2024 23:59", "13/01/2024", None]', "coerce",
+                 id="date and time"),
+    pytest.param('["01/05/2024 10:30:15", "13/01/2024 23:59:59", "12/12/2024 00:00:00"]',
+                 "coerce", id="date and time with seconds"),
+    # names of months are read as without dayfirst
+    pytest.param('["5 Jan 2024", "13 feb 2024", None, "Jan 5, 2024"]', "coerce",
+                 id="month names"),
+    # eight digits: 20240131 is %Y%m%d; 20240105 gets no format from pandas (dateutil)
+    pytest.param('["20240131", "20240105", "20241301", None]', "coerce", id="compact"),
+    # pandas' first value skips missing values and its texts for NaT
+    pytest.param('[None, "", "NaT", "02/03/2024", "13/01/2024", "01/13/2024"]', "coerce",
+                 id="first value after missing ones"),
+    pytest.param('["01/05/2024", "13/01/2024", None, "", "NaT", "31/12/2023"]', "raise",
+                 id="raise"),
+    pytest.param('["2024-01-05", "2024-02-01", None]', "raise", id="ISO raise"),
+    pytest.param('[" 01/05/2024", "  13/01/2024", "\\t2/3/2024 ", "13/01/2024"]', "coerce",
+                 id="a blank before the first value"),
+]
+
+
+@pytest.mark.parametrize("values, errors", DAY_FIRST)
+def test_day_first_follows_pandas_guess(values: str, errors: str) -> None:
+    # pandas is the reference implementation
+    source = (HEAD + f'df = pd.DataFrame({{"raw": {values}}})\n'
+              f'df["t"] = pd.to_datetime(df["raw"], dayfirst=True, errors="{errors}")\n'
+              'empty = df[df["raw"] == "no such value"].copy()\n'
+              f'empty["t"] = pd.to_datetime(empty["raw"], dayfirst=True, errors="{errors}")\n'
+              "result = df\nresult_empty = empty\n")
+    result = differential(source)
+    assert "TODO(porter)" not in result.converted_text, result.converted_text
+    assert "pandas_to_datetime_dayfirst(" in result.converted_text
+
+
+def test_day_first_false_and_with_a_format_read_as_without() -> None:
+    # pandas is the reference implementation: dayfirst only changes the guess; an explicit
+    # format is read as written
+    source = (HEAD + 'df = pd.DataFrame({"raw": ["01/05/2024", "13/01/2024", None, "01/13/2024"]})\n'
+              'df["a"] = pd.to_datetime(df["raw"], dayfirst=False, errors="coerce")\n'
+              'df["b"] = pd.to_datetime(df["raw"], format="%m/%d/%Y", dayfirst=True, errors="coerce")\n'
+              'df["c"] = pd.to_datetime(df["b"], dayfirst=True)\n'
+              "result = df\n")
+    result = differential(source)
+    assert "TODO(porter)" not in result.converted_text, result.converted_text
+    assert "pandas_to_datetime_dayfirst" not in result.converted_text
+
+
+@pytest.mark.parametrize("values", [
+    # 01/05/2024 makes the format day first, and 05/13/2024 does not fit it
+    pytest.param('["01/05/2024", "05/13/2024"]', id="day first"),
+    pytest.param('["2024-01-05", "2024-01-13"]', id="ISO day first"),
+])
+def test_day_first_raises_where_pandas_raises(values: str) -> None:
+    # pandas is the reference implementation
+    source = (HEAD + f'df = pd.DataFrame({{"raw": {values}}})\n'
+              'df["t"] = pd.to_datetime(df["raw"], dayfirst=True)\nresult = df\n')
+    with pytest.raises(ValueError):
+        run(source)
+    with pytest.raises(pl.exceptions.InvalidOperationError):
+        run(convert(source).converted_text)["result"].collect()
+
+
+def test_day_first_of_a_first_value_pandas_reads_value_by_value_is_a_todo() -> None:
+    # pandas guesses no format for 20240105 day first: dateutil reads each value
+    source = (HEAD + 'df = pd.DataFrame({"raw": ["20240105", "20240131"]})\n'
+              'df["t"] = pd.to_datetime(df["raw"], dayfirst=True, errors="coerce")\n')
+    assert "TODO(porter): pd.to_datetime" in convert(source).converted_text
+
+
+def test_day_first_guesses_are_pandas_guesses() -> None:
+    # pandas' guess_datetime_format(dayfirst=True) is the reference: for first values of every
+    # listed format, the first format whose selection reads a real date is pandas' guess, and
+    # eight digits that read day first get no guess
+    from pandas.tseries.api import guess_datetime_format
+    from porter.rules.datetimes import (
+        DAYFIRST_UNGUESSED, GUESSED_FORMATS_DAYFIRST, guess_selection,
+    )
+
+    parts = {"%Y": ["2024", "1999", "0999", "1000"], "%m": ["01", "1", "12", "13", " 1"],
+             "%d": ["05", "5", "31", "13", " 5", "00"], "%H": ["07", "7", "23", "24"],
+             "%M": ["05", "5", "60"], "%S": ["09", "60"], "%f": ["5", "123456", "1234567"],
+             "%b": ["Jan", "jan", "JUN", "May", "Sept"], "%B": ["January", "may", "June"]}
+    selections = [(fmt, re.compile(guess_selection(fmt))) for fmt in GUESSED_FORMATS_DAYFIRST]
+    unguessed = re.compile(guess_selection(DAYFIRST_UNGUESSED))
+
+    def real(value: str, fmt: str) -> bool:
+        return not pd.isna(pd.to_datetime(value, format=fmt, errors="coerce"))
+
+    checked = 0
+    for fmt in (*GUESSED_FORMATS_DAYFIRST, DAYFIRST_UNGUESSED):
+        pieces = re.split(r"(%[a-zA-Z])", fmt)
+        choices = [parts.get(p, [p, p + p] if p in (" ", "-", "/") else [p]) for p in pieces]
+        for combo in itertools.islice(itertools.product(*choices), 3000):
+            value = "".join(combo)
+            with warnings.catch_warnings():
+                warnings.simplefilter("ignore")
+                guess = guess_datetime_format(value, dayfirst=True)
+            if unguessed.search(value) and real(value, DAYFIRST_UNGUESSED):
+                checked += 1
+                assert guess is None, (value, guess)
+                continue
+            chosen = next((f for f, r in selections if r.search(value) and real(value, f)), None)
+            if chosen is not None:
+                checked += 1
+                assert chosen == guess, (value, chosen, guess)
+    assert checked > 1500
