@@ -15,7 +15,7 @@ import pandas as pd
 import polars as pl
 import pytest
 
-from support import convert, differential, run
+from support import convert, differential, run, same_text
 
 HEAD = "import numpy as np\nimport pandas as pd\n"
 
@@ -144,3 +144,91 @@ def test_day_first_guesses_are_pandas_guesses() -> None:
                 checked += 1
                 assert chosen == guess, (value, chosen, guess)
     assert checked > 1500
+
+
+# -- several formats in one column -------------------------------------------------------------
+
+MESSY = ('["05/01/2024", "2024-01-13", None, "", "NaT", "13/01/2024", "x", "2024-02-30",'
+         ' "31/12/2023", "ünï", " 2024-03-01", "2024-3-1", "1/2/2024", "2024-02-29"]')
+
+
+@pytest.mark.parametrize("combine", [
+    pytest.param("first.fillna(second)", id="fillna"),
+    pytest.param("first.combine_first(second)", id="combine_first"),
+])
+def test_two_coerced_parses_filled_one_from_the_other(combine: str) -> None:
+    # pandas is the reference implementation: each format parses the values it fits, the
+    # first one's missing values are taken from the second
+    source = (HEAD + f'df = pd.DataFrame({{"raw": {MESSY}}})\n'
+              'first = pd.to_datetime(df["raw"], format="%d/%m/%Y", errors="coerce")\n'
+              'second = pd.to_datetime(df["raw"], format="%Y-%m-%d", errors="coerce")\n'
+              f'df["t"] = {combine}\n'
+              'df["u"] = pd.to_datetime(df["raw"], format="%d/%m/%Y", errors="coerce").fillna(\n'
+              '    pd.to_datetime(df["raw"], format="%Y-%m-%d", errors="coerce"))\n'
+              'empty = df[df["raw"] == "no such value"].copy()\n'
+              'empty["t"] = pd.to_datetime(empty["raw"], format="%d/%m/%Y", errors="coerce").fillna(\n'
+              '    pd.to_datetime(empty["raw"], format="%Y-%m-%d", errors="coerce"))\n'
+              "result = df\nresult_empty = empty\n")
+    result = differential(source, "result", "result_empty")
+    assert "TODO(porter)" not in result.converted_text, result.converted_text
+
+
+@pytest.mark.parametrize("fmt", ["mixed", "ISO8601"])
+def test_mixed_and_iso8601_formats_stay_pandas(fmt: str) -> None:
+    # pandas reads each value by itself (dateutil for "mixed"; its ISO 8601 parser, which
+    # takes 2024/01/05, 2024-01, 20240105T1000 and time zones that change the dtype, for
+    # "ISO8601"): no fixed list of Polars formats reads every value as it does
+    source = (HEAD + f'df = pd.DataFrame({{"raw": {MESSY}}})\n'
+              f'df["t"] = pd.to_datetime(df["raw"], format="{fmt}", errors="coerce")\n'
+              "result = df\n")
+    result = differential(source)
+    assert "TODO(porter): pd.to_datetime" in result.converted_text
+    assert any(s.key == "pd.to_datetime" and "not identical" in s.message for s in result.sites)
+
+
+# -- the frame s.dt.isocalendar() makes --------------------------------------------------------
+
+# the days around New Year (ISO week 1 of the next year, week 52/53 of the last), a leap day
+# twice, a Sunday (day 7), a missing date in the middle, unsorted
+ISO_DAYS = ('["2024-12-30", None, "2023-01-01", "2021-01-03", "2024-02-29", "2024-02-29",'
+            ' "2020-12-31", "2026-01-01", "NaT"]')
+ISO_FRAME = (HEAD + f'df = pd.DataFrame({{"raw": {ISO_DAYS}, "n": {list(range(9))}}})\n'
+             'df["d"] = pd.to_datetime(df["raw"], format="%Y-%m-%d")\n'
+             'empty = df[df["raw"] == "no such value"].reset_index(drop=True)\n')
+
+
+@pytest.mark.parametrize("use", [
+    pytest.param('df[["iy", "iw", "id"]] = df["d"].dt.isocalendar()\nresult = df\n'
+                 'empty[["iy", "iw", "id"]] = empty["d"].dt.isocalendar()\nresult_empty = empty\n',
+                 id="assigned to three columns"),
+    pytest.param('iso = df["d"].dt.isocalendar()\ndf["w"] = iso["week"]\ndf["y"] = iso.year\n'
+                 'df["wd"] = iso.day\nresult = df\nresult_empty = empty\n',
+                 id="kept in a name"),
+    pytest.param('result = df[["d", "n"]].join(df["d"].dt.isocalendar())\n'
+                 'result_empty = empty[["d", "n"]].join(empty["d"].dt.isocalendar())\n',
+                 id="joined"),
+    pytest.param('iso = df["d"].dt.isocalendar()\nresult = iso.head(5)\n'
+                 'result_empty = empty["d"].dt.isocalendar().head(5)\n',
+                 id="used as a frame"),
+])
+def test_isocalendar_frame_follows_pandas(use: str) -> None:
+    # pandas is the reference implementation
+    result = differential(ISO_FRAME + use, "result", "result_empty")
+    assert "TODO(porter)" not in result.converted_text, result.converted_text
+    assert any(s.key == "series.dt.isocalendar" and s.confidence == 0.95 for s in result.sites)
+
+
+def test_isocalendar_frame_written_and_printed_as_pandas_does(tmp_path) -> None:
+    # pandas is the reference implementation: nullable integers are written 52 and an empty
+    # field, printed <NA>, and the types printed are pandas' own
+    days = "day,k\n2024-12-30,1\n,2\n2023-01-01,3\n2021-01-03,4\n2024-02-29,5\n2020-12-31,6\n"
+    same_text(HEAD + 'df = pd.read_csv("days.csv")\n'
+              'df["d"] = pd.to_datetime(df["day"], format="%Y-%m-%d")\n'
+              'df[["year", "week", "wd"]] = df["d"].dt.isocalendar()\n'
+              'print(df.dtypes)\nprint(df["week"].tolist())\n'
+              'df.to_csv("out.csv", index=False)\n'
+              'iso = df["d"].dt.isocalendar()\nprint(iso)\nprint(iso.dtypes)\n'
+              'iso.to_csv("whole.csv")\nprint(iso[iso["week"] >= 9])\n'
+              'joined = df[["d", "k"]].join(df["d"].dt.isocalendar())\n'
+              'joined.to_csv("joined.csv", index=False)\n',
+              tmp_path, files={"days.csv": days})

@@ -11,14 +11,18 @@ from fractions import Fraction
 import re
 from typing import Any
 
+import libcst as cst
+
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.translate.context import PandasCall, RuleContext, Unsupported, derived_column
+from porter.translate.context import (
+    PandasCall, RuleContext, Unsupported, derived_column, select_columns,
+)
 from porter.translate.context import accessor_column as _accessor_column
 from porter.translate import handover
 from porter.translate.values import (
-    NOT_NULLABLE, Accessor, Column, Opaque, Scalar, Value, fresh_token,
+    NOT_NULLABLE, Accessor, Column, Opaque, Parts, Scalar, Value, fresh_token,
 )
 
 
@@ -490,6 +494,48 @@ def isocalendar_part(call: PandasCall, ctx: RuleContext) -> Value:
     return replace(derived_column(column, code, dtype="int", name=call.name), nullable_int=dtype)
 
 
+@rule("series.dt.isocalendar")
+def isocalendar(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.dt.isocalendar() -> pl.struct(year=dt.iso_year(), week=dt.week(), day=dt.weekday()),
+    pandas' frame of the ISO year, week and day: its columns are expressions of the dates'
+    frame, cast to pandas' types (year Int32, week and day UInt32).
+
+    Handles: df[["year", "week", "day"]] = s.dt.isocalendar() (or other names, in order);
+    df.join(s.dt.isocalendar()) on a frame whose row labels are 0..n-1; iso["week"], iso.week
+    of it kept in a name; NaT is missing in every part (<NA> in pandas' nullable columns), the
+    columns are marked as pandas' nullable integers (to_csv writes 52 and an empty field). The
+    frame used any other way (printed, grouped, concatenated) is pandas' own, computed again
+    from the dates.
+    Caveats: a comparison with <NA> is <NA> in pandas, missing here (0.95, as for the parts).
+    """
+    column = accessor_column(call)
+    ctx.reject_unknown(call)
+    if column.dtype not in (None, "datetime"):
+        raise ctx.todo(f"a {column.dtype} column")
+    ctx.lower("pandas' isocalendar() parts are nullable integers: with a missing date a "
+              "comparison with a part is <NA> in pandas, missing here (printed, it differs)",
+              0.95)
+    singles = tuple((label, _dt(column).method(method).method("cast", emit.atom(f"pl.{dtype}")))
+                    for label, (method, dtype) in _ISO.items())
+    node = call.node
+    if not isinstance(node, cst.Call) or node.args:
+        raise Unsupported("isocalendar() made outside a call porter can write again")
+    receiver = handover.to_pandas(column).wrapped(emit.ATOM)
+    ints = tuple((label, dtype) for label, (_, dtype) in _ISO.items())
+    whole = None
+    frame = column.frame
+    if not frame.index and frame.labels_intact:
+        # read as a frame (iso.head(), iso.to_csv(...)): the three columns selected from the
+        # dates' frame, row for row, labelled 0..n-1 as the dates are
+        whole = replace(
+            select_columns(frame, frame.code.method("select", **dict(singles)), list(_ISO)),
+            dtypes=tuple((label, "int") for label in _ISO), nullable_ints=ints, unsure_ints=())
+    return Parts(emit.pl("struct", **dict(singles)), source=column,
+                 fields=tuple((label, label) for label in _ISO), singles=singles,
+                 width_known=True, pandas=emit.atom(f"{receiver}.dt.isocalendar()"),
+                 ints=ints, whole=whole)
+
+
 # -- formats --------------------------------------------------------------------------------
 
 _SAME_FORMAT = set("YmdHMSybBpIj%")
@@ -876,8 +922,14 @@ def parse_format(fmt: str, ctx: RuleContext, *, years_fixed: bool = False) -> st
     """A pandas (strptime) format as a Polars (chrono) format, or a TODO (`years_fixed`: the
     caller moves chrono's 2069 of %y to pandas' 1969)."""
     if fmt in ("mixed", "ISO8601"):
-        raise ctx.todo(f"format={fmt!r}: list the formats the data holds and coalesce "
-                       "str.to_datetime(f, strict=False) over them")
+        # each value is read by itself: dateutil ("mixed", day or month first per value, any
+        # layout it recognises), or pandas' ISO 8601 parser (2024/01/05, 2024-01, 2024,
+        # 20240105T1000 too, and offsets that make the column zone-aware or an error)
+        raise ctx.todo(f"format={fmt!r}: pandas reads each value by itself "
+                       f"({'dateutil' if fmt == 'mixed' else 'its ISO 8601 parser'}); a coalesce "
+                       "of str.to_datetime(f, strict=False) over a fixed list of formats is not "
+                       "identical in general: list the formats the data holds, parse each with "
+                       "format= and errors='coerce', and fill one from the other")
     other = sorted(set(_directives(fmt)) - _SAME_FORMAT - {"f"})
     if other:
         raise ctx.todo(f"directives {', '.join('%' + d for d in other)} are not checked to "

@@ -1046,6 +1046,10 @@ def part(parts: Parts, label: object, ctx: RuleContext) -> Column:
         code = parts.code.attr("list").method("get", label, null_on_oob=True)
     else:
         raise ctx.todo(f"{label!r}: the columns of str.split(expand=True) are 0, 1, …")
+    ints = dict(parts.ints)
+    if label in ints:  # s.dt.isocalendar()'s nullable integers
+        return _replace(derived_column(column, code, dtype="int", name=str(label)),
+                        nullable_int=ints[label])
     return derived_column(column, code, dtype="str", name=str(label))
 
 
