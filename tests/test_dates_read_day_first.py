@@ -210,6 +210,9 @@ ISO_FRAME = (HEAD + f'df = pd.DataFrame({{"raw": {ISO_DAYS}, "n": {list(range(9)
     pytest.param('iso = df["d"].dt.isocalendar()\nresult = iso.head(5)\n'
                  'result_empty = empty["d"].dt.isocalendar().head(5)\n',
                  id="used as a frame"),
+    pytest.param('iso = df["d"].dt.isocalendar()\nresult = iso[["week", "day"]]\n'
+                 'result_empty = empty["d"].dt.isocalendar()[["day", "year"]]\n',
+                 id="a list of its columns"),
 ])
 def test_isocalendar_frame_follows_pandas(use: str) -> None:
     # pandas is the reference implementation
@@ -232,3 +235,12 @@ def test_isocalendar_frame_written_and_printed_as_pandas_does(tmp_path) -> None:
               'joined = df[["d", "k"]].join(df["d"].dt.isocalendar())\n'
               'joined.to_csv("joined.csv", index=False)\n',
               tmp_path, files={"days.csv": days})
+
+
+def test_a_list_of_labels_of_extracted_parts_is_a_todo_not_an_internal_error() -> None:
+    source = (HEAD + 'df = pd.DataFrame({"raw": ["2024-01", None]})\n'
+              'parts = df["raw"].str.extract(r"(?P<y>\\d+)-(?P<m>\\d+)")\n'
+              'result = parts[["y", "m"]]\n')
+    result = differential(source)
+    assert "TODO(porter): series.str.expand.getitem" in result.converted_text
+    assert "internal error" not in result.converted_text

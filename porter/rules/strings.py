@@ -26,6 +26,7 @@ import libcst as cst
 from porter.translate import handover
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, accessor_column, check_same_rows, derived_column,
+    select_columns,
 )
 from porter.translate.values import (
     Column, Frame, Items, Opaque, Parts, Scalar, Value, fresh_token,
@@ -1034,6 +1035,8 @@ def extract(call: PandasCall, ctx: RuleContext) -> Value:
 def part(parts: Parts, label: object, ctx: RuleContext) -> Column:
     """One column of a frame of parts, as an expression of its source's frame."""
     column = parts.source
+    if isinstance(label, (list, dict, set)):
+        raise ctx.todo("a list of labels: pandas' frame of those parts")
     if parts.fields:
         found = dict(parts.fields)
         if label not in found or isinstance(label, bool):
@@ -1068,6 +1071,12 @@ def expand_getitem(call: PandasCall, ctx: RuleContext) -> Value:
     key = call.args[0]
     if not (isinstance(key, Opaque) and key.is_const):
         raise ctx.todo("a label computed at run time")
+    labels = [label for label, _ in parts.fields]
+    if isinstance(key.const, list) and parts.ints and parts.whole is not None and key.const \
+            and len(set(key.const)) == len(key.const) and all(k in labels for k in key.const):
+        # iso[["week", "day"]] of isocalendar()'s frame: those columns of it, in that order
+        whole = parts.whole
+        return select_columns(whole, whole.code.method("select", *key.const), key.const)
     return part(parts, key.const, ctx)
 
 
