@@ -244,3 +244,51 @@ def test_a_list_of_labels_of_extracted_parts_is_a_todo_not_an_internal_error() -
     result = differential(source)
     assert "TODO(porter): series.str.expand.getitem" in result.converted_text
     assert "internal error" not in result.converted_text
+
+
+def test_day_first_reads_random_columns_as_pandas() -> None:
+    # pandas is the reference implementation: random columns of tricky texts, read by the
+    # function the conversion defines, wherever pandas guesses a format from the first value
+    # (another first value is read by dateutil value by value: the documented 0.8 caveat)
+    import random
+
+    from pandas.tseries.api import guess_datetime_format
+    from porter.rules.datetimes import GUESS_DAYFIRST_DEFINITION
+
+    space: dict = {"pl": pl}
+    exec(GUESS_DAYFIRST_DEFINITION, space)  # noqa: S102 - porter's own generated code
+    read = space["pandas_to_datetime_dayfirst"]
+    vocabulary = [
+        "01/05/2024", "13/01/2024", "05/13/2024", "1/2/2024", " 3/4/2024", "3/4/2024 ",
+        "31/12/2023", "29/02/2024", "29/02/2023", "2024-01-05", "2024-01-13", "2024-13-01",
+        "2024-1-5", "2024-05-01 10:00", "2024-01-05 10:00:00", "2024-01-05T10:00:00",
+        "2024-01-05T10:00:00.5", "2024/01/05", "2024/13/01", "20240131", "01.05.2024",
+        "13.05.2024", "5 Jan 2024", "Jan 5, 2024", "01/05/2024 10:30", "13/01/2024 23:59",
+        "01/05/2024 10:30:15", None, "", "NaT", "nan", "x", "ünï", "０1/05/2024", "2024-01-05 ",
+    ]
+    rng = random.Random(18)
+    compared = 0
+    for _ in range(120):
+        values = [rng.choice(vocabulary) for _ in range(rng.randint(0, 5))]
+        firsts = [v.strip() for v in values if v is not None and v not in ("", "NaT", "nan")]
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            if firsts and guess_datetime_format(firsts[0], dayfirst=True) is None:
+                continue
+        for coerce in (True, False):
+            with warnings.catch_warnings():
+                warnings.simplefilter("ignore")
+                try:
+                    parsed = pd.to_datetime(pd.Series(values, dtype=object), dayfirst=True,
+                                            errors="coerce" if coerce else "raise")
+                    expected: object = [None if pd.isna(v) else v.to_pydatetime() for v in parsed]
+                except ValueError:
+                    expected = "error"
+            try:
+                frame = pl.DataFrame({"raw": pl.Series(values, dtype=pl.String)})
+                actual: object = frame.select(read(pl.col("raw"), coerce=coerce))["raw"].to_list()
+            except pl.exceptions.InvalidOperationError:
+                actual = "error"
+            assert actual == expected, (values, coerce)
+            compared += 1
+    assert compared > 80
