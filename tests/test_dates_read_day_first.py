@@ -292,3 +292,30 @@ def test_day_first_reads_random_columns_as_pandas() -> None:
             assert actual == expected, (values, coerce)
             compared += 1
     assert compared > 80
+
+
+@pytest.mark.parametrize("with_data", [True, False])
+@pytest.mark.parametrize("days", [
+    pytest.param("01/05/2024\n13/01/2024\n\n31/12/2023\n", id="day first"),
+    pytest.param("2024-01-05\n2024-12-11\n2024-03-02\n", id="ISO dates day first"),
+    pytest.param("05/13/2024\n01/05/2024\n12/31/2024\n", id="month first from the first value"),
+    pytest.param("13.01.2024\n01.05.2024\n", id="dots"),
+])
+def test_read_csv_day_first_follows_pandas(tmp_path, days: str, with_data: bool) -> None:
+    # pandas is the reference implementation: read_csv guesses each parsed column's format
+    # from its first value, day first
+    lines = days.split("\n")
+    text = "day,n\n" + "\n".join(f"{d},{i}" if d else f",{i}" for i, d in enumerate(lines[:-1])) + "\n"
+    result = same_text(HEAD + 'df = pd.read_csv("days.csv", parse_dates=["day"], dayfirst=True)\n'
+                       'print(df.dtypes)\ndf.to_csv("out.csv", index=False)\n',
+                       tmp_path, files={"days.csv": text}, with_data=with_data)
+    assert "TODO(porter)" not in result.converted_text, result.converted_text
+
+
+def test_read_csv_day_first_keeps_text_that_does_not_fit_the_guess(tmp_path) -> None:
+    # pandas is the reference implementation: 2024-01-05 day first is %Y-%d-%m, which
+    # 2024-01-13 does not fit, so read_csv keeps the column as text (--data shows it)
+    result = same_text(HEAD + 'df = pd.read_csv("days.csv", parse_dates=["day"], dayfirst=True)\n'
+                       'print(df.dtypes)\ndf.to_csv("out.csv", index=False)\n',
+                       tmp_path, files={"days.csv": "day,n\n2024-01-05,1\n2024-01-13,2\n,3\n"})
+    assert "TODO(porter)" not in result.converted_text, result.converted_text

@@ -479,8 +479,8 @@ def isocalendar_part(call: PandasCall, ctx: RuleContext) -> Value:
     integers (52, an empty field), values / tolist() and a hand-over to pandas give pandas'
     own (52, <NA>).
     Caveats: a comparison with <NA> is <NA> in pandas, missing here (a filter drops the row
-    in both; printed it differs: 0.95). The whole frame isocalendar() makes (or
-    isocalendar()["week"]) stays a TODO.
+    in both; printed it differs: 0.95). The whole frame isocalendar() makes is
+    series.dt.isocalendar (isocalendar below).
     """
     column = accessor_column(call)
     if column.dtype not in (None, "datetime"):

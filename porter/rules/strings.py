@@ -1064,7 +1064,8 @@ def expand_getitem(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: a row with fewer parts is missing, as pandas fills it; the column keeps the
     rows of the frame the text came from, so it can be assigned back to it.
     Caveats: a part number past pandas' width raises KeyError in pandas and is missing here;
-    a list of labels, or the frame as a whole, stays pandas.
+    a list of labels, or the frame as a whole, stays pandas (but for s.dt.isocalendar()'s
+    frame, whose columns are selected from the dates' frame).
     """
     parts = call.receiver
     assert isinstance(parts, Parts)
