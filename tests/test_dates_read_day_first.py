@@ -319,3 +319,13 @@ def test_read_csv_day_first_keeps_text_that_does_not_fit_the_guess(tmp_path) -> 
                        'print(df.dtypes)\ndf.to_csv("out.csv", index=False)\n',
                        tmp_path, files={"days.csv": "day,n\n2024-01-05,1\n2024-01-13,2\n,3\n"})
     assert "TODO(porter)" not in result.converted_text, result.converted_text
+
+
+def test_isocalendar_frame_kept_while_its_dates_change() -> None:
+    # pandas is the reference implementation: the frame keeps the dates it was made from
+    # (porter has pandas compute it where it is bound once the frame's rows or dates change)
+    source = (ISO_FRAME + 'iso = df["d"].dt.isocalendar()\n'
+              'df = df[df["n"] > 1].reset_index(drop=True)\n'
+              'df["d"] = df["d"] + pd.Timedelta(days=7)\n'
+              'top = iso.head(4)\ndf["w"] = iso["week"]\nresult = df\n')
+    differential(source, "result", "top")
