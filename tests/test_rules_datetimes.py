@@ -80,7 +80,8 @@ PORTS = [
     pytest.param('pd.to_datetime(df["raw"], dayfirst=True)',
                  'pandas_to_datetime_dayfirst(pl.col("raw"), coerce=False)',
                  id="to_datetime day first without format"),
-    # a column of the frame isocalendar() makes (the whole frame: tests/test_day_first_dates_and_iso_calendar_frames.py)
+    # a column of the frame isocalendar() makes (the whole frame:
+    # tests/test_day_first_dates_and_iso_calendar_frames.py)
     pytest.param('df["t"].dt.isocalendar()["week"]', 'pl.col("t").dt.week().cast(pl.UInt32)',
                  id="isocalendar subscript"),
 ]
