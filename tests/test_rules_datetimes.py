@@ -77,6 +77,13 @@ PORTS = [
                  id="to_datetime time only"),
     pytest.param('pd.to_datetime(df["raw"])', 'pandas_to_datetime(pl.col("raw"), coerce=False)',
                  id="to_datetime without format"),
+    pytest.param('pd.to_datetime(df["raw"], dayfirst=True)',
+                 'pandas_to_datetime_dayfirst(pl.col("raw"), coerce=False)',
+                 id="to_datetime day first without format"),
+    # a column of the frame isocalendar() makes (the whole frame:
+    # tests/test_day_first_dates_and_iso_calendar_frames.py)
+    pytest.param('df["t"].dt.isocalendar()["week"]', 'pl.col("t").dt.week().cast(pl.UInt32)',
+                 id="isocalendar subscript"),
 ]
 
 
@@ -99,10 +106,6 @@ TODOS = [
     pytest.param('df["t"].dt.round("h")', "series.dt.round", id="round"),
     pytest.param('df["t"].dt.ceil("h")', "series.dt.ceil", id="ceil"),
     pytest.param('df["t"].dt.to_period("M")', "series.periods", id="to_period kept"),
-    # the frame isocalendar() makes, and a subscript of it, stay pandas (.week ports)
-    pytest.param('df["t"].dt.isocalendar()', "series.dt.isocalendar", id="isocalendar frame"),
-    pytest.param('df["t"].dt.isocalendar()["week"]', "series.dt.isocalendar",
-                 id="isocalendar subscript"),
     pytest.param('pd.to_timedelta(df["n"])', "pd.to_timedelta",
                  id="to_timedelta column without unit"),
     pytest.param('df["t"] < pd.Timestamp("now")', "pd.Timestamp", id="Timestamp now"),

@@ -560,7 +560,7 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
         columns = expanded_columns(value, names, frame, ctx)
         return set_nullable_ints(
             with_columns(frame, [(n, *value_expr(c, frame, ctx)) for n, c in zip(names, columns)]),
-            dict.fromkeys(names, NOT_NULLABLE))
+            {n: c.nullable_int or NOT_NULLABLE for n, c in zip(names, columns)})
     if isinstance(key, Opaque) and isinstance(key.const, str):
         code, dtype = value_expr(value, frame, ctx)
         result = set_nullable_ints(with_columns(frame, [(key.const, code, dtype)]),
@@ -669,7 +669,9 @@ def join_parts(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo("a part named like a column of the frame (pandas raises without "
                        "lsuffix/rsuffix)")
     columns = expanded_columns(other, names, frame, ctx)
-    return with_columns(frame, [(n, *value_expr(c, frame, ctx)) for n, c in zip(names, columns)])
+    return set_nullable_ints(
+        with_columns(frame, [(n, *value_expr(c, frame, ctx)) for n, c in zip(names, columns)]),
+        {n: c.nullable_int or NOT_NULLABLE for n, c in zip(names, columns)})
 
 
 @rule("frame.assign")

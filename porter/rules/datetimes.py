@@ -11,14 +11,18 @@ from fractions import Fraction
 import re
 from typing import Any
 
+import libcst as cst
+
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.translate.context import PandasCall, RuleContext, Unsupported, derived_column
+from porter.translate.context import (
+    PandasCall, RuleContext, Unsupported, derived_column, select_columns,
+)
 from porter.translate.context import accessor_column as _accessor_column
 from porter.translate import handover
 from porter.translate.values import (
-    NOT_NULLABLE, Accessor, Column, Opaque, Scalar, Value, fresh_token,
+    NOT_NULLABLE, Accessor, Column, Opaque, Parts, Scalar, Value, fresh_token,
 )
 
 
@@ -475,8 +479,8 @@ def isocalendar_part(call: PandasCall, ctx: RuleContext) -> Value:
     integers (52, an empty field), values / tolist() and a hand-over to pandas give pandas'
     own (52, <NA>).
     Caveats: a comparison with <NA> is <NA> in pandas, missing here (a filter drops the row
-    in both; printed it differs: 0.95). The whole frame isocalendar() makes (or
-    isocalendar()["week"]) stays a TODO.
+    in both; printed it differs: 0.95). The whole frame isocalendar() makes is
+    series.dt.isocalendar (isocalendar below).
     """
     column = accessor_column(call)
     if column.dtype not in (None, "datetime"):
@@ -488,6 +492,48 @@ def isocalendar_part(call: PandasCall, ctx: RuleContext) -> Value:
     code = _dt(column).method(method).method("cast", emit.atom(f"pl.{dtype}"))
     # pandas' nullable integers (Int32, UInt32): to_csv, values and hand-overs read the mark
     return replace(derived_column(column, code, dtype="int", name=call.name), nullable_int=dtype)
+
+
+@rule("series.dt.isocalendar")
+def isocalendar(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.dt.isocalendar() -> pl.struct(year=dt.iso_year(), week=dt.week(), day=dt.weekday()),
+    pandas' frame of the ISO year, week and day: its columns are expressions of the dates'
+    frame, cast to pandas' types (year Int32, week and day UInt32).
+
+    Handles: df[["year", "week", "day"]] = s.dt.isocalendar() (or other names, in order);
+    df.join(s.dt.isocalendar()) on a frame whose row labels are 0..n-1; iso["week"], iso.week
+    of it kept in a name; NaT is missing in every part (<NA> in pandas' nullable columns), the
+    columns are marked as pandas' nullable integers (to_csv writes 52 and an empty field). The
+    frame used any other way (printed, grouped, concatenated) is pandas' own, computed again
+    from the dates.
+    Caveats: a comparison with <NA> is <NA> in pandas, missing here (0.95, as for the parts).
+    """
+    column = accessor_column(call)
+    ctx.reject_unknown(call)
+    if column.dtype not in (None, "datetime"):
+        raise ctx.todo(f"a {column.dtype} column")
+    ctx.lower("pandas' isocalendar() parts are nullable integers: with a missing date a "
+              "comparison with a part is <NA> in pandas, missing here (printed, it differs)",
+              0.95)
+    singles = tuple((label, _dt(column).method(method).method("cast", emit.atom(f"pl.{dtype}")))
+                    for label, (method, dtype) in _ISO.items())
+    node = call.node
+    if not isinstance(node, cst.Call) or node.args:
+        raise Unsupported("isocalendar() made outside a call porter can write again")
+    receiver = handover.to_pandas(column).wrapped(emit.ATOM)
+    ints = tuple((label, dtype) for label, (_, dtype) in _ISO.items())
+    whole = None
+    frame = column.frame
+    if not frame.index and frame.labels_intact:
+        # read as a frame (iso.head(), iso.to_csv(...)): the three columns selected from the
+        # dates' frame, row for row, labelled 0..n-1 as the dates are
+        whole = replace(
+            select_columns(frame, frame.code.method("select", **dict(singles)), list(_ISO)),
+            dtypes=tuple((label, "int") for label in _ISO), nullable_ints=ints, unsure_ints=())
+    return Parts(emit.pl("struct", **dict(singles)), source=column,
+                 fields=tuple((label, label) for label in _ISO), singles=singles,
+                 width_known=True, pandas=emit.atom(f"{receiver}.dt.isocalendar()"),
+                 ints=ints, whole=whole)
 
 
 # -- formats --------------------------------------------------------------------------------
@@ -658,6 +704,28 @@ GUESSED_FORMATS = (
     "%d/%m/%Y %H:%M:%S", "%m.%d.%Y", "%d.%m.%Y",
     "%B %d, %Y", "%b %d, %Y", "%d %B %Y", "%d %b %Y",
 )
+# With dayfirst=True pandas guesses the same layouts day first where the first value reads as a
+# real date that way: 01/05/2024 is %d/%m/%Y, and an ISO date too, 2024-01-05 being %Y-%d-%m
+# (the 5th month; 2024-01-13 then does not fit it). A first value that does not read day first
+# (05/13/2024, 2024-01-31) keeps the month-first format. Eight digits that read day first
+# (20240105) get no format at all (DAYFIRST_UNGUESSED; dateutil reads each value in pandas);
+# 20240131 is %Y%m%d. The names of months are read as without dayfirst.
+_DAY_FIRST = {"%m/%d/%Y": "%d/%m/%Y", "%m/%d/%Y %H:%M": "%d/%m/%Y %H:%M",
+              "%m/%d/%Y %H:%M:%S": "%d/%m/%Y %H:%M:%S", "%m.%d.%Y": "%d.%m.%Y"}
+
+
+def _day_first(fmt: str) -> str:
+    if fmt in _DAY_FIRST:
+        return _DAY_FIRST[fmt]
+    if fmt.startswith(("%Y-%m-%d", "%Y/%m/%d")):
+        return fmt[:3] + "%d" + fmt[5] + "%m" + fmt[8:]
+    return fmt
+
+
+GUESSED_FORMATS_DAYFIRST = tuple(dict.fromkeys(
+    f for fmt in GUESSED_FORMATS if fmt not in _DAY_FIRST.values()
+    for f in (_day_first(fmt), fmt)))
+DAYFIRST_UNGUESSED = "%Y%d%m"
 _MONTHS = ("January", "February", "March", "April", "May", "June", "July", "August",
            "September", "October", "November", "December")
 _GUESS_FIELDS = {
@@ -676,16 +744,18 @@ _NOT_FIRST = [*NAT_TEXTS, "now", "today"]
 def guess_selection(fmt: str) -> str:
     """The regex of the first values for which pandas guesses `fmt` (before the formats
     after it in GUESSED_FORMATS)."""
-    found = _pattern(fmt, _GUESS_COMPACT if fmt == "%Y%m%d" else _GUESS_FIELDS, " ")
+    found = _pattern(fmt, _GUESS_COMPACT if fmt in ("%Y%m%d", DAYFIRST_UNGUESSED) else _GUESS_FIELDS,
+                     " ")
     assert not isinstance(found, str)
     return "^" + re.sub(r"\(\?P<.>", "(?:", found[0]) + "$"
 
 
-def _guess_definition() -> str:
+def _guess_definition(dayfirst: bool = False) -> str:
     """The function, defined once at the top of a converted script, that reads dates as
-    pd.to_datetime without format= reads them (see GUESSED_FORMATS)."""
+    pd.to_datetime without format= reads them (see GUESSED_FORMATS), or with dayfirst=True
+    (GUESSED_FORMATS_DAYFIRST)."""
     rows = []
-    for fmt in GUESSED_FORMATS:
+    for fmt in GUESSED_FORMATS_DAYFIRST if dayfirst else GUESSED_FORMATS:
         port = strptime_port(fmt, month_number=True)
         assert isinstance(port, Strptime) and port.pattern.startswith("(?i)^(?:") \
             and port.pattern.endswith(")|^")  # the blanks around it are added there
@@ -695,13 +765,26 @@ def _guess_definition() -> str:
                     f"             {port.text!r}),\n")
     names = [*_MONTHS, *(m[:3] for m in _MONTHS)]
     numbers = [str(i % 12 + 1) for i in range(24)]
+    unguessed = ""
+    if dayfirst:
+        port = strptime_port(DAYFIRST_UNGUESSED, month_number=True)
+        assert isinstance(port, Strptime)
+        unguessed = (
+            "    # eight digits that read day first (20240105): pandas guesses no format and\n"
+            "    # dateutil reads each value by itself; no dates here (an error with raise)\n"
+            f"    unguessed = (first.str.contains({guess_selection(DAYFIRST_UNGUESSED)!r})\n"
+            f"                 & read(first.str.replace({port.pattern!r},\n"
+            f"                                          {port.text!r}), False).is_not_null())\n")
     return (
-        f"def {GUESS_FUNCTION}(text, coerce):\n"
+        f"def {GUESS_DAYFIRST_FUNCTION if dayfirst else GUESS_FUNCTION}(text, coerce):\n"
         '    """pd.to_datetime(text) without format=, as pandas reads it: pandas guesses one\n'
         "    format from the first value (the first format below whose first pattern reads a\n"
         "    real date in it) and reads every value with it (the second pattern); a value it\n"
         "    does not fit is missing (coerce) or an error, as is a first value in none of\n"
-        '    these formats. Each value is rewritten into one layout Polars reads."""\n'
+        + ("    these formats. Day first (dayfirst=True): 01/05/2024 is the 1st of May, as\n"
+           '    2024-01-05 is. Each value is rewritten into one layout Polars reads."""\n'
+           if dayfirst else
+           '    these formats. Each value is rewritten into one layout Polars reads."""\n') +
         "    def read(layouts, strict):\n"
         f"        return (layouts.str.replace_many({names!r},\n"
         f"                                          {numbers!r},\n"
@@ -716,6 +799,7 @@ def _guess_definition() -> str:
         '    bare, lead, trail = (~first.str.contains(r"^\\s|\\s$"), first.str.contains(r"^\\s"),\n'
         '                         first.str.contains(r"\\s$"))\n'
         "    first = first.str.strip_chars()\n"
+        + unguessed +
         "\n"
         "    def blanks(pattern, front, back):\n"
         '        return pattern.replace("^(?:", "^(?:" + front, 1)[:-3] + back + ")|^"\n'
@@ -729,6 +813,8 @@ def _guess_definition() -> str:
         '              .otherwise(text.str.replace(blanks(pattern, r"\\s+", r"\\s+"), layout)))\n'
         "        for selection, pattern, layout in FORMATS\n"
         "    ]\n"
+        + ('    guessed = [pl.when(unguessed).then(text.str.slice(0, 0) + "="), *guessed]\n'
+           if dayfirst else "") +
         "    return read(pl.coalesce(guessed if coerce else [*guessed, text]), not coerce)\n"
     ).replace("in FORMATS", "in [\n" + "".join(rows) + "        ]")
 
@@ -755,15 +841,18 @@ def formatted_parse(column: Code, fmt: str, port: Strptime, *, coerce: bool) -> 
         .attr("str").method("to_datetime", port.chrono, time_unit="us", **options)
 
 
-def guessed_parse(column: Code, *, coerce: bool) -> Code:
+def guessed_parse(column: Code, *, coerce: bool, dayfirst: bool = False) -> Code:
     """pd.to_datetime(column) without format=: the format pandas guesses from the first value,
-    among GUESSED_FORMATS, applied to every value as an explicit format is."""
-    return emit.call(GUESS_FUNCTION, column, coerce=coerce)
+    among GUESSED_FORMATS (GUESSED_FORMATS_DAYFIRST with dayfirst=True), applied to every
+    value as an explicit format is."""
+    return emit.call(GUESS_DAYFIRST_FUNCTION if dayfirst else GUESS_FUNCTION, column, coerce=coerce)
 
 
 _GUESS_LAYOUT = "%Y/%m/%d %H:%M:%S%.f="
 GUESS_FUNCTION = "pandas_to_datetime"
 GUESS_DEFINITION = _guess_definition()
+GUESS_DAYFIRST_FUNCTION = "pandas_to_datetime_dayfirst"
+GUESS_DAYFIRST_DEFINITION = _guess_definition(dayfirst=True)
 GUESS_REASON = ("no format: pandas guesses one from the first value and reads every value "
                 "with it; porter follows its guess for ISO dates and times, 01/05/2024 (month "
                 "first, or day first from 13/01/2024), 20240105, 5 Jan 2024 and Jan 5, 2024; "
@@ -771,6 +860,14 @@ GUESS_REASON = ("no format: pandas guesses one from the first value and reads ev
                 "impossible day such as 02/30/2024) gives no dates here (an error with "
                 "errors='raise') where pandas reads each value by itself; write format= to be "
                 "sure")
+GUESS_DAYFIRST_REASON = (
+    "no format, dayfirst=True: pandas guesses one from the first value, day first where it "
+    "reads that way (01/05/2024 and 2024-01-05 are the 1st of May), and reads every value with "
+    "it; porter follows its guess for ISO dates and times, 01/05/2024, 01.05.2024, 20240131, "
+    "5 Jan 2024 and Jan 5, 2024; a first value in another layout (a two-digit year, a time "
+    "zone, am/pm, eight digits that read day first such as 20240105) gives no dates here (an "
+    "error with errors='raise') where pandas reads each value by itself; write format= to be "
+    "sure")
 
 
 def _written_values(column: Column, ctx: RuleContext) -> list[list[object]]:
@@ -825,8 +922,14 @@ def parse_format(fmt: str, ctx: RuleContext, *, years_fixed: bool = False) -> st
     """A pandas (strptime) format as a Polars (chrono) format, or a TODO (`years_fixed`: the
     caller moves chrono's 2069 of %y to pandas' 1969)."""
     if fmt in ("mixed", "ISO8601"):
-        raise ctx.todo(f"format={fmt!r}: list the formats the data holds and coalesce "
-                       "str.to_datetime(f, strict=False) over them")
+        # each value is read by itself: dateutil ("mixed", day or month first per value, any
+        # layout it recognises), or pandas' ISO 8601 parser (2024/01/05, 2024-01, 2024,
+        # 20240105T1000 too, and offsets that make the column zone-aware or an error)
+        raise ctx.todo(f"format={fmt!r}: pandas reads each value by itself "
+                       f"({'dateutil' if fmt == 'mixed' else 'its ISO 8601 parser'}); a coalesce "
+                       "of str.to_datetime(f, strict=False) over a fixed list of formats is not "
+                       "identical in general: list the formats the data holds, parse each with "
+                       "format= and errors='coerce', and fill one from the other")
     other = sorted(set(_directives(fmt)) - _SAME_FORMAT - {"f"})
     if other:
         raise ctx.todo(f"directives {', '.join('%' + d for d in other)} are not checked to "
@@ -886,9 +989,13 @@ def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
     pandas' guess of one format from the first value among GUESSED_FORMATS (ISO dates and
     times, 01/05/2024 month first or 13/01/2024 day first, 20240105, Jan 5, 2024, 5 Jan 2024)
     and reads every value with it: the values it does not fit are NaT, or an error.
+    dayfirst=True (pandas_to_datetime_dayfirst): the same guess day first where the first
+    value reads that way (01/05/2024 and 2024-01-05 are the 1st of May; 05/13/2024 and
+    2024-01-31 keep the month-first format); with format= dayfirst is ignored, as in pandas.
     Caveats: without a format, a first value in another layout (two-digit years, time zones,
     am/pm, an impossible day) is read by dateutil value by value in pandas: no dates here
-    (an error with errors="raise") (0.8); %f keeps microseconds where pandas keeps
+    (an error with errors="raise") (0.8), as is, day first, a first value of eight digits
+    that reads day first (20240105); %f keeps microseconds where pandas keeps
     nanoseconds (0.9); other directives (%j) keep Polars' own parser, which also takes values
     pandas refuses (0.8); a second of 61 rolls over into the next minute in pandas and is
     missing here; a year in non-ASCII digits ("２024") and year 0000 in an ISO format (an error
@@ -899,7 +1006,7 @@ def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
     pandas) are cut to the unit (0.9); other units are TODOs. utc=True of text or epoch
     numbers without a zone of their own: the same times in UTC (_in_utc).
     """
-    ctx.reject_unknown(call, "arg", "errors", "format", "unit", "utc", positional=1)
+    ctx.reject_unknown(call, "arg", "errors", "format", "unit", "utc", "dayfirst", positional=1)
     if call.const("utc", None, False, kinds=(bool,)):
         return _in_utc(call, ctx)
     column = call.arg("arg", 0)
@@ -926,20 +1033,24 @@ def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
     if column.dtype is None:
         ctx.lower("assumes the column holds text (its type is unknown without --data)", 0.9)
     fmt = call.const("format", None, None)
+    # dayfirst= only changes pandas' guess of a format: an explicit format is read as written
+    dayfirst = call.const("dayfirst", None, False, kinds=(bool,))
     options: dict[str, object] = {"strict": False} if errors == "coerce" else {}
     text = column.code.attr("str")
     nat_texts = '"" and "NaT" are missing in pandas and an error in Polars (strict)'
     if fmt is None:
+        guessed = GUESSED_FORMATS_DAYFIRST if dayfirst else GUESSED_FORMATS
         for first in _first_written_values(column, ctx):
-            if any(re.fullmatch(guess_selection(f), first) for f in GUESSED_FORMATS):
+            unguessed = dayfirst and re.fullmatch(guess_selection(DAYFIRST_UNGUESSED), first)
+            if any(re.fullmatch(guess_selection(f), first) for f in guessed) and not unguessed:
                 continue
             # the values are written in the script: pandas reads a first value in another
             # layout ("1/1/2020 10:00:00+00:00": a time zone) value by value, the converted
             # pandas_to_datetime would find no format and fail
             raise ctx.todo(f"the first date {first!r} is in a layout pandas reads value by "
                            "value (dateutil); write format= to port it")
-        ctx.lower(GUESS_REASON, 0.8)
-        code = guessed_parse(column.code, coerce=errors == "coerce")
+        ctx.lower(GUESS_DAYFIRST_REASON if dayfirst else GUESS_REASON, 0.8)
+        code = guessed_parse(column.code, coerce=errors == "coerce", dayfirst=dayfirst)
     else:
         if not isinstance(fmt, str):
             raise ctx.todo("the format must be text")

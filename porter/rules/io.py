@@ -22,7 +22,7 @@ from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_DURATIONS_CONST
                                      na_value_numbers, na_value_texts,
                                      written_compression)
 from porter.analysis.schema import PADDING, PANDAS_FALSE, PANDAS_TRUE
-from porter.rules.datetimes import GUESS_REASON, Strptime, formatted_parse, guessed_parse, strptime_port
+from porter.rules.datetimes import GUESS_DAYFIRST_REASON, GUESS_REASON, Strptime, formatted_parse, guessed_parse, strptime_port
 from porter.rules.strings import LIST_STR, list_repr
 from porter.rules.ops import MASKED_DTYPES
 from porter.translate import handover
@@ -102,14 +102,14 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     Integers beyond int64 beside a negative value or a blank (text in pandas, Int128 in
     Polars) are a TODO when --data shows them.
     parse_dates follows pandas' guess of one format from the first value (05/03/2024 month
-    first): with --data made at convert time from the sample and written out (0.9), else made
+    first; day first with dayfirst=True, 2024-01-05 too): with --data made at convert time from the sample and written out (0.9), else made
     at run time by pandas_to_datetime (0.8); a value that does not fit stops the script where
     pandas leaves the column as text, except that a column whose values in --data's first 1000
     rows do not all fit is left as text, as pandas leaves it (0.9). An empty header is named "Unnamed: n" only when --data shows
     it; a repeated header name is a TODO then.
     """
     known = {"filepath_or_buffer", "sep", "delimiter", "usecols", "dtype", "parse_dates",
-             "na_values", "keep_default_na", "nrows", "skiprows", "encoding", "header", "names",
+             "dayfirst", "na_values", "keep_default_na", "nrows", "skiprows", "encoding", "header", "names",
              "decimal", "comment", "thousands", "skipinitialspace", "compression",
              "true_values", "false_values",
              *READ_CSV_IGNORED}
@@ -560,7 +560,9 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     if parse_dates:
         if parse_dates is True or not all(isinstance(c, str) for c in parse_dates):
             raise ctx.todo("parse_dates must list column names")
-        parsed = {c: _parsed_dates(c, schema, ctx) for c in parse_dates}
+        # dayfirst= only changes pandas' guess of each column's format
+        dayfirst = call.const("dayfirst", None, False, kinds=(bool,))
+        parsed = {c: _parsed_dates(c, schema, ctx, dayfirst=dayfirst) for c in parse_dates}
         exprs = [e for e in parsed.values() if e is not None]
         dated = [c for c, e in parsed.items() if e is not None]
         if exprs:
@@ -852,7 +854,7 @@ def _const_dtype_dict(call: PandasCall) -> bool:
     return isinstance(value, Opaque) and isinstance(value.const, dict)
 
 
-def _parsed_dates(column: str, schema: Any, ctx: RuleContext) -> Code | None:
+def _parsed_dates(column: str, schema: Any, ctx: RuleContext, *, dayfirst: bool = False) -> Code | None:
     """read_csv(parse_dates=[column]): pandas guesses one format from the column's first value
     and reads every value with it. With --data porter makes the same guess from the sample's
     first value and writes that format; without, pandas_to_datetime guesses it at run time.
@@ -868,7 +870,7 @@ def _parsed_dates(column: str, schema: Any, ctx: RuleContext) -> Code | None:
         from pandas.tseries.api import guess_datetime_format  # pandas' own guess, as read_csv makes it
         with warnings.catch_warnings():
             warnings.simplefilter("ignore")  # "Parsing dates in %d/%m/%Y format when dayfirst=False"
-            formats = {guess_datetime_format(first) for first in firsts}
+            formats = {guess_datetime_format(first, dayfirst=dayfirst) for first in firsts}
         fmt = formats.pop() if len(formats) == 1 else None  # the files agree on one format
     heads = getattr(schema, "text_heads", None) or {}
     if fmt is not None and column in heads and not _all_fit(heads[column], fmt):
@@ -884,9 +886,9 @@ def _parsed_dates(column: str, schema: Any, ctx: RuleContext) -> Code | None:
                   "and a value that does not fit stops the script where pandas leaves the "
                   "column as text", 0.9)
         return formatted_parse(emit.col(column), fmt, port, coerce=False)  # type: ignore[arg-type]
-    ctx.lower(f"parse_dates: {GUESS_REASON}; a value that does not fit stops the script where "
-              "pandas leaves the column as text", 0.8)
-    return guessed_parse(emit.col(column), coerce=False)
+    ctx.lower(f"parse_dates: {GUESS_DAYFIRST_REASON if dayfirst else GUESS_REASON}; a value "
+              "that does not fit stops the script where pandas leaves the column as text", 0.8)
+    return guessed_parse(emit.col(column), coerce=False, dayfirst=dayfirst)
 
 
 def _all_fit(values: list[str], fmt: str) -> bool:

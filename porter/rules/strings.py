@@ -26,6 +26,7 @@ import libcst as cst
 from porter.translate import handover
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, accessor_column, check_same_rows, derived_column,
+    select_columns,
 )
 from porter.translate.values import (
     Column, Frame, Items, Opaque, Parts, Scalar, Value, fresh_token,
@@ -1034,6 +1035,8 @@ def extract(call: PandasCall, ctx: RuleContext) -> Value:
 def part(parts: Parts, label: object, ctx: RuleContext) -> Column:
     """One column of a frame of parts, as an expression of its source's frame."""
     column = parts.source
+    if isinstance(label, (list, dict, set)):
+        raise ctx.todo("a list of labels: pandas' frame of those parts")
     if parts.fields:
         found = dict(parts.fields)
         if label not in found or isinstance(label, bool):
@@ -1046,6 +1049,10 @@ def part(parts: Parts, label: object, ctx: RuleContext) -> Column:
         code = parts.code.attr("list").method("get", label, null_on_oob=True)
     else:
         raise ctx.todo(f"{label!r}: the columns of str.split(expand=True) are 0, 1, …")
+    ints = dict(parts.ints)
+    if label in ints:  # s.dt.isocalendar()'s nullable integers
+        return _replace(derived_column(column, code, dtype="int", name=str(label)),
+                        nullable_int=ints[label])
     return derived_column(column, code, dtype="str", name=str(label))
 
 
@@ -1057,13 +1064,20 @@ def expand_getitem(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: a row with fewer parts is missing, as pandas fills it; the column keeps the
     rows of the frame the text came from, so it can be assigned back to it.
     Caveats: a part number past pandas' width raises KeyError in pandas and is missing here;
-    a list of labels, or the frame as a whole, stays pandas.
+    a list of labels, or the frame as a whole, stays pandas (but for s.dt.isocalendar()'s
+    frame, whose columns are selected from the dates' frame).
     """
     parts = call.receiver
     assert isinstance(parts, Parts)
     key = call.args[0]
     if not (isinstance(key, Opaque) and key.is_const):
         raise ctx.todo("a label computed at run time")
+    labels = [label for label, _ in parts.fields]
+    if isinstance(key.const, list) and parts.ints and parts.whole is not None and key.const \
+            and len(set(key.const)) == len(key.const) and all(k in labels for k in key.const):
+        # iso[["week", "day"]] of isocalendar()'s frame: those columns of it, in that order
+        whole = parts.whole
+        return select_columns(whole, whole.code.method("select", *key.const), key.const)
     return part(parts, key.const, ctx)
 
 

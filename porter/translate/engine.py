@@ -1712,6 +1712,8 @@ class _Walker:
         frame_name = source.frame.code.text
         frame = env.get(frame_name)
         refused = getattr(self.services, "parts_refused", set())
+        if parts.ints:
+            return None  # isocalendar()'s integers: pandas computes it where it is bound
         if self.function is not None or self.loop_depth or self.statement_key in refused \
                 or not parts_current(parts, env) or not isinstance(frame, Frame) \
                 or frame.columns is None or not frame_name.isidentifier():

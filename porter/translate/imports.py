@@ -7,7 +7,10 @@ import ast
 import libcst as cst
 
 from porter.analysis.imports import ImportFacts
-from porter.rules.datetimes import GUESS_DEFINITION, GUESS_FUNCTION, stamp_parts
+from porter.rules.datetimes import (
+    GUESS_DAYFIRST_DEFINITION, GUESS_DAYFIRST_FUNCTION, GUESS_DEFINITION, GUESS_FUNCTION,
+    stamp_parts,
+)
 from porter.rules.handover import TEXT_DEFINITION, TEXT_FUNCTION
 from porter.translate.handover import VALUES_DEFINITION, VALUES_FUNCTION
 from porter.rules.elementwise import DISTINCT_DEFINITION, DISTINCT_FUNCTION
@@ -133,6 +136,7 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (ROW_FUNCTION, ROW_DEFINITION),
                                  (SORT_FUNCTION, SORT_DEFINITION),
                                  (GUESS_FUNCTION, GUESS_DEFINITION),
+                                 (GUESS_DAYFIRST_FUNCTION, GUESS_DAYFIRST_DEFINITION),
                                  (TEXT_FUNCTION, TEXT_DEFINITION),
                                  (UPPER_FUNCTION, UPPER_DEFINITION),
                                  (TITLE_FUNCTION, TITLE_DEFINITION),

@@ -245,6 +245,9 @@ class Parts(Value):
     # the result as a Polars frame, where its columns are kept in the text's frame
     # (engine.parts_as_columns): what reads it as a whole (parts.head()) reads this
     whole: "Frame | None" = field(default=None, kw_only=True)
+    # parts that are pandas' nullable integers (s.dt.isocalendar(): year Int32, week and day
+    # UInt32), by label, with that dtype name; the other parts are text
+    ints: tuple[tuple[Any, str], ...] = field(default=(), kw_only=True)
 
 
 @dataclass(frozen=True)
