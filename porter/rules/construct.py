@@ -22,6 +22,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.model import SiteDraft
 from porter.rules import rule
+from porter.rules.legacy import modern_offset
 from porter.translate.context import MIXED_COLUMN, PandasCall, RuleContext
 from porter.translate import handover
 from porter.translate.values import Column, Frame, Opaque, PandasValue, Scalar, Value
@@ -539,6 +540,12 @@ def date_range(call: PandasCall, ctx: RuleContext) -> Value:
     freq = call.const("freq", 3, "D", kinds=(str,))
     if isinstance(periods, bool) or (start, end, periods).count(None) != 1:
         raise ctx.todo("exactly two of start, end and periods are ported")
+    modern = modern_offset(freq)
+    if modern is not None:
+        # an alias pandas 3 rejects ("H", "15T", "M"): the offset pandas 2.2 renamed it to
+        ctx.lower(f"freq={freq!r} is read as {modern!r}, its name since pandas 2.2 (pandas "
+                  "3.1 rejects the old one)", 1.0)
+        freq = modern
     import warnings
     import pandas as pd
     import polars as pl
