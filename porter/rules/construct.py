@@ -540,6 +540,7 @@ def date_range(call: PandasCall, ctx: RuleContext) -> Value:
     freq = call.const("freq", 3, "D", kinds=(str,))
     if isinstance(periods, bool) or (start, end, periods).count(None) != 1:
         raise ctx.todo("exactly two of start, end and periods are ported")
+    written = freq
     modern = modern_offset(freq)
     if modern is not None:
         # an alias pandas 3 rejects ("H", "15T", "M"): the offset pandas 2.2 renamed it to
@@ -567,7 +568,8 @@ def date_range(call: PandasCall, ctx: RuleContext) -> Value:
     except ValueError:  # "<Week: weekday=6> is a non-fixed frequency"
         step = None
     if step is None or step <= 0:
-        raise ctx.todo(f"freq={freq!r} is anchored to a calendar (week, month, business "
+        renamed = f" (the script's {written!r}, which pandas 3.1 rejects)" if written != freq else ""
+        raise ctx.todo(f"freq={freq!r}{renamed} is anchored to a calendar (week, month, business "
                        "day): porter ports fixed steps (D, h, min, s, ...)")
     if stamps.tz is not None or str(stamps.dtype) != "datetime64[us]":
         raise ctx.todo("a time zone, or a unit other than microseconds")
