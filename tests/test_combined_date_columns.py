@@ -104,6 +104,10 @@ def test_the_old_spelling_fails_on_pandas_3(tmp_path: Path, old: str) -> None:
     ('pd.read_csv("crossings.csv", parse_dates=["pier", ["day", "time"]])',
      "mixing single columns"),
     ('pd.read_csv("crossings.csv", parse_dates={"pier": ["day", "time"]})', "already a column"),
+    ('pd.read_csv("crossings.csv", parse_dates={"day": ["day", "time"]})', "already a column"),
+    ('pd.read_csv("crossings.csv", parse_dates=[["day"]])', "already a column"),
+    # a tuple is one column's name (two levels) in pandas, not columns to combine
+    ('pd.read_csv("crossings.csv", parse_dates=[("day", "time")])', "tuples"),
     ('pd.read_csv("crossings.csv", parse_dates=[["day", "cars"]])', "read as numbers"),
 ])
 def test_combined_dates_porter_does_not_read_stay_todos(tmp_path: Path, call: str, why: str) -> None:

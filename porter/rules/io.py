@@ -864,6 +864,7 @@ def _combines_columns(parse_dates: Any) -> bool:
     """parse_dates={"when": ["d", "t"]} or [["d", "t"]]: columns joined into one (pandas < 3)."""
     if isinstance(parse_dates, dict):
         return True
+    # (a tuple in the list is one column's name, of two levels, in pandas: not combined)
     return isinstance(parse_dates, (list, tuple)) and \
         any(isinstance(c, (list, tuple)) for c in parse_dates)
 
@@ -913,8 +914,9 @@ def _combined_dates(frame: Frame, parse_dates: Any, fmt: str | None, schema: Any
     if isinstance(parse_dates, dict):
         groups = list(parse_dates.items())
     else:
-        if not all(isinstance(g, (list, tuple)) for g in parse_dates):
-            raise ctx.todo("parse_dates mixing single columns and lists of columns")
+        if not all(isinstance(g, list) for g in parse_dates):
+            raise ctx.todo("parse_dates mixing single columns (or tuples: names of two "
+                           "levels) and lists of columns")
         groups = [("_".join(str(c) for c in g), g) for g in parse_dates]
     parts: list[str] = []
     exprs: list[Code] = []
@@ -927,7 +929,8 @@ def _combined_dates(frame: Frame, parse_dates: Any, fmt: str | None, schema: Any
             raise ctx.todo("parse_dates names a column the file does not have")
         if any(c in parts for c in group) or name in names:
             raise ctx.todo("a column in two combined dates")
-        if frame.columns is not None and name in frame.columns and name not in group:
+        if name in group or (frame.columns is not None and name in frame.columns):
+            # pandas before 3: "New date column already in dict"
             raise ctx.todo(f"the combined column {name!r} is already a column (pandas raises)")
         kinds = [frame.dtype(c) for c in group]
         if any(k not in (None, "str") for k in kinds):
