@@ -54,7 +54,8 @@ def _offset_accepted(freq: str) -> bool:
     return True
 
 
-def _period_accepted(freq: str) -> bool:
+def period_accepted(freq: str) -> bool:
+    """Whether pandas 3.1 reads `freq` as a period frequency ("M", "Q", "Y", "h")."""
     import warnings
     import pandas as pd
     try:
@@ -79,4 +80,4 @@ def modern_period(freq: object) -> str | None:
     when there is nothing to rename ("M", "Q", "Y" are still the month, quarter and year)."""
     if not isinstance(freq, str):
         return None
-    return _modern(freq, PERIOD_ALIASES, _period_accepted)
+    return _modern(freq, PERIOD_ALIASES, period_accepted)

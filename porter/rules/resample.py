@@ -188,6 +188,7 @@ def resample(call: PandasCall, ctx: RuleContext) -> Value:
     if not call.has("on"):
         raise ctx.todo("resampling the index: porter ports resample(rule, on=column)")
     on = call.const("on", None, kinds=(str,))
+    _not_periods(frame, on, ctx)
     bins = _bins_checked(call, ctx)
     if frame.index:
         raise ctx.todo("the frame keeps an index (after a groupby): call reset_index() first")
@@ -264,6 +265,7 @@ def groupby_grouper(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo("dropna=False keeps rows with a missing key")
     as_index = call.const("as_index", None, True, kinds=(bool,))
     spec = specs[0]
+    _not_periods(frame, spec.key, ctx)
     keys = tuple(k.key if isinstance(k, TimeGrouperSpec) else k for k in keys_given)
     if len(set(keys)) != len(keys):
         raise ctx.todo("the time column is also a plain key")
@@ -338,6 +340,7 @@ def indexed_resample(call: PandasCall, ctx: RuleContext) -> Value:
     """df.set_index("ts").resample(rule) -> as df.resample(rule, on="ts")."""
     indexed = _indexed(call)
     ctx.reject_unknown(call, "rule", "closed", "label", "origin", positional=1)
+    _not_periods(indexed.frame, indexed.key, ctx)
     bins = _bins_checked(call, ctx)
     return Resampled(indexed.code.method("resample", bins.freq, **_options(call)),
                      frame=indexed.frame, keys=(indexed.key,), time=indexed.key,
@@ -386,6 +389,7 @@ def indexed_groupby_resample(call: PandasCall, ctx: RuleContext) -> Value:
     """
     indexed = _indexed(call)
     ctx.reject_unknown(call, "rule", "closed", "label", "origin", positional=1)
+    _not_periods(indexed.frame, indexed.key, ctx)
     bins = _bins_checked(call, ctx)
     return _group_bins(indexed.code.method("resample", bins.freq, **_options(call)),
                        indexed.frame, indexed.grouped, indexed.key, bins, indexed.selection,
@@ -409,10 +413,20 @@ def groupby_resample(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo("the frame keeps an index (after a groupby): call reset_index() first")
     if any(grouped.frame.dtype(k) == "category" for k in grouped.keys):
         raise ctx.todo("category keys: pandas adds the categories no row has")
+    _not_periods(grouped.frame, on, ctx)
     bins = _bins_checked(call, ctx)
     pandas = handover.to_pandas(grouped).method("resample", bins.freq, on=on, **_options(call))
     return _group_bins(pandas, grouped.frame, grouped.keys, on, bins, grouped.selection,
                        grouped.single, ctx)
+
+
+def _not_periods(frame: Frame, time: str, ctx: RuleContext) -> None:
+    """A column of periods (dt.to_period) is binned by pandas with period frequencies ("M" is
+    still the month there, and "ME" is refused): porter bins timestamps only."""
+    dtype = frame.dtype(time)
+    if isinstance(dtype, str) and dtype.startswith("period"):
+        raise ctx.todo(f"{time!r} holds periods ({dtype}): pandas resamples them by period "
+                       "frequency; porter bins timestamps")
 
 
 def _bins_checked(call: PandasCall, ctx: RuleContext, name: str = "rule") -> Bins:

@@ -391,7 +391,7 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
 # calls taking a frequency: the method's or function's name -> (the keyword, its position, an
 # offset or a period)
 _FREQUENCY_ARGS = {
-    "resample": ("rule", 0, "offset"), "asfreq": ("freq", 0, "offset"),
+    "resample": ("rule", 0, "either"), "asfreq": ("freq", 0, "either"),
     "floor": ("freq", 0, "offset"), "ceil": ("freq", 0, "offset"), "round": ("freq", 0, "offset"),
     "date_range": ("freq", 3, "offset"), "bdate_range": ("freq", 3, "offset"),
     "Grouper": ("freq", None, "offset"),
@@ -403,7 +403,7 @@ def modern_frequencies(node: cst.CSTNode) -> dict[int, str]:
     """The arguments of a call kept on pandas that write a frequency alias pandas 3 rejects
     ("M", "15T"; rules/legacy.py), by their index, with pandas 3.1's name for it: the script
     ran on the pandas that had it, and the kept call runs on pandas 3.1."""
-    from porter.rules.legacy import modern_offset, modern_period
+    from porter.rules.legacy import modern_offset, modern_period, period_accepted
     if not isinstance(node, cst.Call):
         return {}
     func = node.func
@@ -413,6 +413,12 @@ def modern_frequencies(node: cst.CSTNode) -> dict[int, str]:
         return {}
     keyword, position, kind = _FREQUENCY_ARGS[name]
     modern = modern_period if kind == "period" else modern_offset
+    if kind == "either":
+        # resample / asfreq of periods read period frequencies ("M" is still the month there):
+        # only an alias pandas 3.1 refuses for periods too is renamed (the call failed either
+        # way), to its offset name ("H": "h", "BM": "BME")
+        def modern(freq: str) -> str | None:  # noqa: F811
+            return None if period_accepted(freq) else modern_offset(freq)
     found = {}
     positional = 0
     for i, arg in enumerate(node.args):
