@@ -2463,7 +2463,8 @@ def _key_read(call: PandasCall, ctx: RuleContext, keys: tuple[Any, ...]) -> str 
 
         def visit_Attribute(self, attr: cst.Attribute) -> None:
             if isinstance(attr.value, cst.Name) and attr.value.value == param \
-                    and attr.attr.value in names and attr.attr.value not in pandas_names.FRAME:
+                    and attr.attr.value in names and attr.attr.value not in pandas_names.FRAME \
+                    and attr.attr.value != "name":  # g.name: the group's key in pandas 3 too
                 found.append(attr.attr.value)
 
     node.visit(Find())
