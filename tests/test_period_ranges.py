@@ -162,7 +162,7 @@ def test_strftime_with_month_names_is_lowered_for_the_locale():
      "periods of period[Q-MAR]"),
     ('cal = pd.DataFrame({"p": pd.period_range("2024-01-01", periods=3, freq="W-MON")})',
      "periods of period[W-MON]"),
-    ('cal = pd.DataFrame({"p": pd.period_range("2024", periods=3, freq="A")})',
+    ('cal = pd.DataFrame({"p": pd.period_range("2024", periods=3, freq="BA")})',
      "pandas raises here"),
     ('cal = pd.DataFrame({"p": pd.period_range("2024-03", "2024-01", freq="M")})',
      "an empty range"),

@@ -22,6 +22,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.model import SiteDraft
 from porter.rules import rule
+from porter.rules.legacy import modern_offset
 from porter.translate.context import MIXED_COLUMN, PandasCall, RuleContext
 from porter.translate import handover
 from porter.translate.values import Column, Frame, Opaque, PandasValue, Scalar, Value
@@ -539,6 +540,13 @@ def date_range(call: PandasCall, ctx: RuleContext) -> Value:
     freq = call.const("freq", 3, "D", kinds=(str,))
     if isinstance(periods, bool) or (start, end, periods).count(None) != 1:
         raise ctx.todo("exactly two of start, end and periods are ported")
+    written = freq
+    modern = modern_offset(freq)
+    if modern is not None:
+        # an alias pandas 3 rejects ("H", "15T", "M"): the offset pandas 2.2 renamed it to
+        ctx.lower(f"freq={freq!r} is read as {modern!r}, its name since pandas 2.2 (pandas "
+                  "3.1 rejects the old one)", 1.0)
+        freq = modern
     import warnings
     import pandas as pd
     import polars as pl
@@ -560,7 +568,8 @@ def date_range(call: PandasCall, ctx: RuleContext) -> Value:
     except ValueError:  # "<Week: weekday=6> is a non-fixed frequency"
         step = None
     if step is None or step <= 0:
-        raise ctx.todo(f"freq={freq!r} is anchored to a calendar (week, month, business "
+        renamed = f" (the script's {written!r}, which pandas 3.1 rejects)" if written != freq else ""
+        raise ctx.todo(f"freq={freq!r}{renamed} is anchored to a calendar (week, month, business "
                        "day): porter ports fixed steps (D, h, min, s, ...)")
     if stamps.tz is not None or str(stamps.dtype) != "datetime64[us]":
         raise ctx.todo("a time zone, or a unit other than microseconds")

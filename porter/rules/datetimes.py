@@ -16,6 +16,7 @@ import libcst as cst
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
+from porter.rules.legacy import modern_offset, modern_period
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, derived_column, select_columns,
 )
@@ -212,6 +213,17 @@ def tz_convert(call: PandasCall, ctx: RuleContext) -> Value:
     return _result(column, code, "datetime")
 
 
+def _modern_freq(freq: Any, modern: Any, ctx: RuleContext) -> Any:
+    """The frequency as pandas 3.1 names it: an alias it rejects ("T", "H", "A") read as the
+    one pandas 2.2 renamed it to (legacy.py); any other value as given."""
+    new = modern(freq)
+    if new is None:
+        return freq
+    ctx.lower(f"freq={freq!r} is read as {new!r}, its name since pandas 2.2 (pandas 3.1 "
+              "rejects the old one)", 1.0)
+    return new
+
+
 _FIXED_FLOOR = re.compile(r"^([1-9][0-9]*)?(D|h|min|s|ms|us)$")
 _POLARS_UNIT = {"D": "d", "h": "h", "min": "m", "s": "s", "ms": "ms", "us": "us"}
 
@@ -230,7 +242,7 @@ def floor(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.reject_unknown(call, "freq", positional=1)
     if column.dtype not in (None, "datetime"):
         raise ctx.todo(f"a {column.dtype} column")
-    freq = call.const("freq", 0, None)
+    freq = _modern_freq(call.const("freq", 0, None), modern_offset, ctx)
     found = _FIXED_FLOOR.match(freq) if isinstance(freq, str) else None
     if found is None:
         raise ctx.todo(f"freq={freq!r}: porter floors to multiples of D, h, min, s, ms, us")
@@ -301,7 +313,7 @@ def to_period(call: PandasCall, ctx: RuleContext) -> Value:
     """
     column = accessor_column(call)
     ctx.reject_unknown(call, "freq", positional=1)
-    freq = call.const("freq", 0, None, kinds=(str,))
+    freq = _modern_freq(call.const("freq", 0, None, kinds=(str,)), modern_period, ctx)
     if freq not in _PERIODS:
         raise ctx.todo("Polars has no period type: dt.truncate(freq) gives the period start "
                        f"(porter ports {', '.join(_PERIODS)})")
@@ -1739,6 +1751,11 @@ def period_range(call: PandasCall, ctx: RuleContext) -> Value:
     freq = call.const("freq", 3, None, kinds=(str,))
     if isinstance(periods, bool) or (start, end, periods).count(None) != 1:
         raise ctx.todo("exactly two of start, end and periods are ported")
+    modern = modern_period(freq)
+    if modern is not None and pandas_kept:
+        raise ctx.todo(f"freq={freq!r}: pandas 3.1 rejects it, write {modern!r} (the range is "
+                       "kept on pandas here)")
+    freq = _modern_freq(freq, modern_period, ctx)
     if periods is not None and periods > _MOST_PERIODS:
         raise ctx.todo(f"over {_MOST_PERIODS:,} periods")
     try:

@@ -2090,8 +2090,7 @@ class _BodyReader:
             raise self.fail("selects columns porter cannot name")
         grouped = self.grouped
         if name in grouped.keys:
-            raise Unsupported(f"the function reads the key column {name!r}: pandas 3 does not "
-                              "pass the key columns to the function (KeyError)")
+            raise Unsupported(_key_read_reason(name))
         frame = grouped.frame
         if frame.columns is not None and (name not in frame.columns or name in frame.index):
             raise Unsupported(f"the function reads {name!r}, which is not a column of the "
@@ -2380,6 +2379,9 @@ def groupby_apply(call: PandasCall, ctx: RuleContext) -> Value:
             except Unsupported as exc:
                 raise ctx.todo(f"apply on a selected column: {exc.reason}") from None
         raise ctx.todo("apply on selected columns: write the function as agg() of the column")
+    key = _key_read(call, ctx, grouped.keys)
+    if key is not None:
+        raise ctx.todo(_key_read_reason(key))
     param, body = _applied_body(call, ctx)
     reader = _BodyReader(param, grouped, ctx)
     series = _series_dict(body, ctx)
@@ -2434,6 +2436,62 @@ def _recast(code: Code, target: str) -> Code:
         code = Code(code.base + "".join(code.steps[:-1]), code.prec, code.base, code.steps[:-1]) \
             if len(code.steps) > 1 else Code(code.base)
     return code.method("cast", emit.atom(target))
+
+
+def _key_read_reason(key: str) -> str:
+    return (f"the function reads the key column {key!r}: pandas before 3 passed the key columns "
+            "to it, which the script relies on, and pandas 3 does not (KeyError); read the key "
+            "from the group's name (g.name) or select the columns with the key "
+            "(groupby(keys)[[...]].apply)")
+
+
+def _key_read(call: PandasCall, ctx: RuleContext, keys: tuple[Any, ...]) -> str | None:
+    """The first group key the applied function reads from its group (g["k"], g.k,
+    g.loc[..., "k"], g[["k", ...]]), anywhere in a lambda or the script's own function."""
+    function = call.arg("func", 0)
+    node = function.node if isinstance(function, Opaque) else None
+    if isinstance(node, cst.Name) and ctx.function_def is not None:
+        node = ctx.function_def(node.value)
+    if isinstance(node, cst.Lambda):
+        params = node.params.params
+    elif isinstance(node, cst.FunctionDef):
+        params = node.params.params
+    else:
+        return None
+    if not params:
+        return None
+    param = params[0].name.value
+    names = {k for k in keys if isinstance(k, str)}
+    found: list[str] = []
+
+    def texts(index: cst.BaseExpression) -> list[str]:
+        if isinstance(index, cst.SimpleString):
+            return [index.evaluated_value] if isinstance(index.evaluated_value, str) else []
+        if isinstance(index, (cst.List, cst.Tuple)):
+            return [t for e in index.elements for t in texts(e.value)]
+        return []
+
+    class Find(cst.CSTVisitor):
+        def visit_Subscript(self, sub: cst.Subscript) -> None:
+            target = sub.value
+            if isinstance(target, cst.Attribute) and target.attr.value in ("loc", "at"):
+                target = target.value
+                parts = sub.slice[1:]  # the column part of g.loc[rows, cols]
+            else:
+                parts = sub.slice[:1] if len(sub.slice) == 1 else []
+            if isinstance(target, cst.Name) and target.value == param:
+                for part in parts:
+                    if isinstance(part.slice, cst.Index):
+                        found.extend(t for t in texts(part.slice.value) if t in names)
+
+        def visit_Attribute(self, attr: cst.Attribute) -> None:
+            if isinstance(attr.value, cst.Name) and attr.value.value == param \
+                    and attr.attr.value in names and attr.attr.value not in pandas_names.FRAME \
+                    and attr.attr.value != "name":  # g.name: the group's key in pandas 3 too
+                found.append(attr.attr.value)
+
+    node.visit(Find())
+    return found[0] if found else None
 
 
 def _applied_body(call: PandasCall, ctx: RuleContext) -> tuple[str, cst.BaseExpression]:

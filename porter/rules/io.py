@@ -111,7 +111,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     known = {"filepath_or_buffer", "sep", "delimiter", "usecols", "dtype", "parse_dates",
              "dayfirst", "na_values", "keep_default_na", "nrows", "skiprows", "encoding", "header", "names",
              "decimal", "comment", "thousands", "skipinitialspace", "compression",
-             "true_values", "false_values",
+             "true_values", "false_values", "date_parser", "keep_date_col",
              *READ_CSV_IGNORED}
     ctx.reject_unknown(call, *known, positional=1)
     source = call.arg("filepath_or_buffer", 0)
@@ -556,13 +556,22 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         usecols = call.const_values("usecols", kinds=(str, int))
     if usecols is not None:
         frame = _select_in_file_order(frame, usecols, ctx)
-    parse_dates = call.const("parse_dates", None, None, kinds=(bool, list, tuple))
-    if parse_dates:
+    parse_dates = call.const("parse_dates", None, None, kinds=(bool, list, tuple, dict))
+    parser_format = _date_parser_format(call, ctx)
+    if call.const("keep_date_col", None, False, kinds=(bool,)):
+        raise ctx.todo("keep_date_col=True (removed in pandas 3): the joined columns kept "
+                       "beside the combined one")
+    if parser_format is not None and not parse_dates:
+        raise ctx.todo("date_parser= without parse_dates: pandas never calls it")
+    if parse_dates and _combines_columns(parse_dates):
+        frame = _combined_dates(frame, parse_dates, parser_format, schema, ctx)
+    elif parse_dates:
         if parse_dates is True or not all(isinstance(c, str) for c in parse_dates):
             raise ctx.todo("parse_dates must list column names")
         # dayfirst= only changes pandas' guess of each column's format
         dayfirst = call.const("dayfirst", None, False, kinds=(bool,))
-        parsed = {c: _parsed_dates(c, schema, ctx, dayfirst=dayfirst) for c in parse_dates}
+        parsed = {c: _parsed_dates(c, schema, ctx, parser_format, dayfirst=dayfirst)
+                  for c in parse_dates}
         exprs = [e for e in parsed.values() if e is not None]
         dated = [c for c, e in parsed.items() if e is not None]
         if exprs:
@@ -854,13 +863,151 @@ def _const_dtype_dict(call: PandasCall) -> bool:
     return isinstance(value, Opaque) and isinstance(value.const, dict)
 
 
-def _parsed_dates(column: str, schema: Any, ctx: RuleContext, *, dayfirst: bool = False) -> Code | None:
+def _combines_columns(parse_dates: Any) -> bool:
+    """parse_dates={"when": ["d", "t"]} or [["d", "t"]]: columns joined into one (pandas < 3)."""
+    if isinstance(parse_dates, dict):
+        return True
+    # (a tuple in the list is one column's name, of two levels, in pandas: not combined)
+    return isinstance(parse_dates, (list, tuple)) and \
+        any(isinstance(c, (list, tuple)) for c in parse_dates)
+
+
+def _date_parser_format(call: PandasCall, ctx: RuleContext) -> str | None:
+    """The format of read_csv's date_parser= (removed in pandas 3), when it is
+    `lambda x: pd.to_datetime(x, format=F)` or `lambda x: datetime.strptime(x, F)`: pandas
+    before 3 read the (joined) texts with it, as date_format=F / to_datetime(format=F) do
+    now. None without date_parser; a TODO for any other function."""
+    if not call.has("date_parser"):
+        return None
+    function = call.arg("date_parser")
+    node = function.node if isinstance(function, Opaque) else None
+    todo = ctx.todo("date_parser= (removed in pandas 3) other than lambda x: "
+                    "pd.to_datetime(x, format=...) or datetime.strptime(x, ...): write "
+                    "date_format= or parse the column with pd.to_datetime after reading")
+    if not (isinstance(node, cst.Lambda) and len(node.params.params) == 1
+            and isinstance(node.body, cst.Call)):
+        raise todo
+    param = node.params.params[0].name.value
+    body = node.body
+    func = cst.Module([]).code_for_node(body.func)
+    args = [a for a in body.args if a.keyword is None]
+    kwargs = {a.keyword.value: a.value for a in body.args if a.keyword is not None}
+    if not (args and isinstance(args[0].value, cst.Name) and args[0].value.value == param):
+        raise todo
+    if func.endswith("to_datetime") and len(args) == 1 and set(kwargs) == {"format"}:
+        fmt = kwargs["format"]
+        evaluated = ctx.evaluate(body.func, {})
+        if not (isinstance(evaluated, Module) and evaluated.qualname == "pandas.to_datetime"):
+            raise todo
+    elif func.split(".")[-2:] == ["datetime", "strptime"] and len(args) == 2 and not kwargs:
+        fmt = args[1].value
+    else:
+        raise todo
+    if not isinstance(fmt, cst.SimpleString) or not isinstance(fmt.evaluated_value, str):
+        raise todo
+    return fmt.evaluated_value
+
+
+def _combined_dates(frame: Frame, parse_dates: Any, fmt: str | None, schema: Any,
+                    ctx: RuleContext) -> Frame:
+    """read_csv(parse_dates=[["d", "t"]]) / parse_dates={"when": ["d", "t"]} (pandas < 3): the
+    columns' texts joined with a space and read as one datetime column, named "d_t" (or the
+    dict's key), put first, the joined columns dropped; as pandas 3.1 reads
+    pd.to_datetime(df["d"] + " " + df["t"]) (format= given by date_parser)."""
+    if isinstance(parse_dates, dict):
+        groups = list(parse_dates.items())
+    else:
+        if not all(isinstance(g, list) for g in parse_dates):
+            raise ctx.todo("parse_dates mixing single columns (or tuples: names of two "
+                           "levels) and lists of columns")
+        groups = [("_".join(str(c) for c in g), g) for g in parse_dates]
+    parts: list[str] = []
+    exprs: list[Code] = []
+    names: list[str] = []
+    for name, group in groups:
+        if not (isinstance(name, str) and isinstance(group, (list, tuple)) and group
+                and all(isinstance(c, str) for c in group)):
+            raise ctx.todo("parse_dates combining columns other than by their names")
+        if frame.columns is not None and any(c not in frame.columns for c in group):
+            raise ctx.todo("parse_dates names a column the file does not have")
+        if any(c in parts for c in group) or name in names:
+            raise ctx.todo("a column in two combined dates")
+        if name in group or (frame.columns is not None and name in frame.columns):
+            # pandas before 3: "New date column already in dict"
+            raise ctx.todo(f"the combined column {name!r} is already a column (pandas raises)")
+        kinds = [frame.dtype(c) for c in group]
+        if any(k not in (None, "str") for k in kinds):
+            raise ctx.todo("a combined column read as numbers or dates: pandas before 3 joined "
+                           "the text it read, porter joins text columns only")
+        if None in kinds:
+            ctx.lower("parse_dates joining columns whose types porter does not know (run with "
+                      "--data): a column read as numbers is joined as Polars writes them", 0.9)
+        joined = emit.pl("concat_str", [emit.col(c) for c in group], separator=" ") \
+            if len(group) > 1 else emit.col(group[0])
+        firsts = None
+        texts = getattr(schema, "first_texts", None) or {}
+        if fmt is None and all(c in texts for c in group) and \
+                len(getattr(schema, "first_texts_each", None) or [None]) == 1:
+            firsts = " ".join(texts[c] for c in group)
+        exprs.append(_dates_of(joined, fmt, firsts, ctx).method("alias", name))
+        parts.extend(group)
+        names.append(name)
+    ctx.lower("combined date columns: a row with a missing part is missing here, as "
+              "pd.to_datetime(df[\"d\"] + \" \" + df[\"t\"]) gives it in pandas 3; pandas "
+              "before 3 joined the text 'nan' and kept the whole column as text", 0.95)
+    code = frame.code.method("with_columns", *exprs)
+    if frame.columns is not None:
+        columns = (*names, *(c for c in frame.columns if c not in parts and c not in names))
+        code = code.method("select", *columns)
+    else:
+        columns = None
+        code = code.method("select", *names, emit.pl("exclude", *parts, *names))
+    dtypes = tuple({**{n: "datetime" for n in names},
+                    **{c: t for c, t in frame.dtypes if c not in parts and c not in names}}.items())
+    return derive(frame, code, same_rows=True, columns=columns, dtypes=dtypes)
+
+
+def _dates_of(text: Code, fmt: str | None, first: str | None, ctx: RuleContext) -> Code:
+    """Text read as datetimes as pd.to_datetime(text, format=fmt) reads it; without fmt, in the
+    format pandas guesses from `first` (the sample's first value) or at run time."""
+    if fmt is None and first is not None:
+        import warnings
+
+        from pandas.tseries.api import guess_datetime_format
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            fmt = guess_datetime_format(first)
+        if fmt is not None:
+            ctx.lower(f"parse_dates: the format pandas guesses from the sample's first value "
+                      f"({fmt!r}); a file whose first date is written otherwise is read "
+                      "otherwise", 0.9)
+    if fmt is not None:
+        port = strptime_port(fmt)
+        if not isinstance(port, Strptime):
+            raise ctx.todo(f"the date format {fmt!r}: {port}")
+        ctx.lower("parse_dates with a format: a value that does not fit stops the script "
+                  "where pandas leaves the column as text", 0.9)
+        return formatted_parse(text, fmt, port, coerce=False)
+    ctx.lower(f"parse_dates: {GUESS_REASON}", 0.8)
+    return guessed_parse(text, coerce=False)
+
+
+def _parsed_dates(column: str, schema: Any, ctx: RuleContext,
+                  fmt: str | None = None, *, dayfirst: bool = False) -> Code | None:
     """read_csv(parse_dates=[column]): pandas guesses one format from the column's first value
     and reads every value with it. With --data porter makes the same guess from the sample's
     first value and writes that format; without, pandas_to_datetime guesses it at run time.
     None when --data shows a value that does not fit the format guessed (day-first dates whose
     first day is 12 or less): pandas' read_csv then keeps the column as text, and so does the
     scan."""
+    if fmt is not None:
+        # date_parser=lambda x: pd.to_datetime(x, format=fmt) (pandas < 3): date_format=fmt now
+        port = strptime_port(fmt)
+        if not isinstance(port, Strptime):
+            raise ctx.todo(f"the date format {fmt!r}: {port}")
+        ctx.lower("date_parser with a format: a value that does not fit stops the script "
+                  "where pandas leaves the column as text", 0.9)
+        return formatted_parse(emit.col(column), fmt, port, coerce=False)
     each = getattr(schema, "first_texts_each", None) or [getattr(schema, "first_texts", None) or {}]
     firsts = [texts[column] for texts in each if column in texts]
     fmt = None

@@ -36,6 +36,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.groupby import UntypedColumns, agg_dtype, agg_expr, agg_with_sums, how_name
+from porter.rules.legacy import modern_offset
 from porter.rules.ops import float32_possible
 from porter.translate import handover
 from porter.translate.context import PandasCall, RuleContext, Unsupported, column_names, derive
@@ -53,10 +54,6 @@ _ZERO_WHEN_EMPTY = {"sum", "count", "size", "nunique"}
 _TICKS = {"D": ("d", "days", "total_days", 86400), "h": ("h", "hours", "total_hours", 3600),
           "min": ("m", "minutes", "total_minutes", 60), "s": ("s", "seconds", "total_seconds", 1)}
 _WEEKDAYS = {"MON": 1, "TUE": 2, "WED": 3, "THU": 4, "FRI": 5, "SAT": 6, "SUN": 7}  # Polars' numbers
-# pandas 3.1 rejects these spellings (ValueError): the script fails there as written
-_REJECTED = {"M": "ME", "H": "h", "Q": "QE", "Y": "YE", "A": "YE", "T": "min", "S": "s",
-             "BM": "BME", "BQ": "BQE", "BY": "BYE", "BA": "BYE", "SM": "SME", "L": "ms", "U": "us",
-             "N": "ns"}
 _ANCHORED = {
     # rule: (label of a timestamp t from its period's start, range interval, end-anchored)
     "MS": ("1mo", 1, False), "ME": ("1mo", 1, True),
@@ -79,6 +76,7 @@ class Bins:
     interval: str  # pl.datetime_ranges' interval between two labels (or two periods' starts)
     end_anchored: bool = False  # labels are month ends: the range runs over the months' starts
     caveat: str | None = None  # where the rewrite may differ (lowers the confidence)
+    renamed: str | None = None  # the script's alias, which pandas 3 spells `freq` ("M": "ME")
     from_first: bool = False  # bins counted from the first timestamp's midnight (several days)
 
     def labels(self, time: Code) -> Code:
@@ -97,7 +95,16 @@ class Bins:
 
 
 def bins_of(freq: object) -> Bins:
-    """The bins of a rule pandas 3.1 reads, or a TODO saying why not."""
+    """The bins of a rule pandas 3.1 reads, or a TODO saying why not. An alias older pandas
+    read and pandas 3.1 rejects ("M", "15T", "A-JUN") is read as the offset pandas 3.1 spells
+    otherwise ("ME", "15min", "YE-JUN"): what the script meant where it ran."""
+    modern = modern_offset(freq)
+    if modern is not None:
+        try:
+            return replace(bins_of(modern), renamed=str(freq))
+        except Unsupported as error:
+            raise Unsupported(f"{error} (the script's {freq!r}, which pandas 3.1 rejects, "
+                              f"is {modern!r} now)") from None
     if not isinstance(freq, str):
         raise Unsupported("the rule must be written out as text (an offset object or a "
                           "Timedelta is not read by porter)")
@@ -146,9 +153,6 @@ def bins_of(freq: object) -> Bins:
                 start = start.attr("dt").method("offset_by", f"{months - 1}mo")
             return start.attr("dt").method("month_end")  # the period's last day, at midnight
         return Bins(freq, "right" if end else "left", anchored, f"{months}mo", end_anchored=end)
-    if freq in _REJECTED:
-        raise Unsupported(f"pandas 3.1 rejects the rule {freq!r} (ValueError); "
-                          f"{_REJECTED[freq]!r} is its spelling now")
     raise Unsupported(f"rule {freq!r}: porter ports D, h, min, s (and multiples), "
                       "W / W-MON … W-SUN, MS, ME, QS, QE, YS, YE (business days, semi-months, "
                       "multiples of weeks or months and lower-case spellings are not ported)")
@@ -173,7 +177,8 @@ def resample(call: PandasCall, ctx: RuleContext) -> Value:
     """df.resample(rule, on="ts") -> time bins waiting for an aggregation (`resample.sum` ...).
 
     Handles: the rules D, h, min, s and their multiples, W / W-MON … W-SUN, MS, ME, QS, QE, YS, YE
-    with pandas' closed= and label= (given or not) and origin="start_day".
+    with pandas' closed= and label= (given or not) and origin="start_day"; the old names
+    pandas 3 rejects (M, Q, Y / A, AS, H, T, S) as the rules they name (legacy.py).
     Caveats: resampling the index (no on=), other closed / label / origin, offset=,
     convention=, kind=, group_keys= and business-day rules are TODOs.
     """
@@ -183,10 +188,8 @@ def resample(call: PandasCall, ctx: RuleContext) -> Value:
     if not call.has("on"):
         raise ctx.todo("resampling the index: porter ports resample(rule, on=column)")
     on = call.const("on", None, kinds=(str,))
-    bins = bins_of(call.const("rule", 0))
-    _check_options(call, bins)
-    if bins.caveat:
-        ctx.lower(bins.caveat, 0.95)
+    _not_periods(frame, on, ctx)
+    bins = _bins_checked(call, ctx)
     if frame.index:
         raise ctx.todo("the frame keeps an index (after a groupby): call reset_index() first")
     pandas = handover.to_pandas(frame).method(
@@ -209,10 +212,7 @@ def grouper(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo("a Grouper of the index (no key=): porter ports key=column")
     if not call.has("freq"):
         raise ctx.todo("a Grouper without freq= groups by the column's values")
-    bins = bins_of(call.const("freq", None))
-    _check_options(call, bins)
-    if bins.caveat:
-        ctx.lower(bins.caveat, 0.95)
+    bins = _bins_checked(call, ctx, "freq")
     if call.node is None:
         raise ctx.todo("the Grouper's text is not known")
     spec = TimeGrouperSpec(key, bins.freq, _grouper_source(call, key, bins.freq))
@@ -265,6 +265,7 @@ def groupby_grouper(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo("dropna=False keeps rows with a missing key")
     as_index = call.const("as_index", None, True, kinds=(bool,))
     spec = specs[0]
+    _not_periods(frame, spec.key, ctx)
     keys = tuple(k.key if isinstance(k, TimeGrouperSpec) else k for k in keys_given)
     if len(set(keys)) != len(keys):
         raise ctx.todo("the time column is also a plain key")
@@ -339,6 +340,7 @@ def indexed_resample(call: PandasCall, ctx: RuleContext) -> Value:
     """df.set_index("ts").resample(rule) -> as df.resample(rule, on="ts")."""
     indexed = _indexed(call)
     ctx.reject_unknown(call, "rule", "closed", "label", "origin", positional=1)
+    _not_periods(indexed.frame, indexed.key, ctx)
     bins = _bins_checked(call, ctx)
     return Resampled(indexed.code.method("resample", bins.freq, **_options(call)),
                      frame=indexed.frame, keys=(indexed.key,), time=indexed.key,
@@ -387,6 +389,7 @@ def indexed_groupby_resample(call: PandasCall, ctx: RuleContext) -> Value:
     """
     indexed = _indexed(call)
     ctx.reject_unknown(call, "rule", "closed", "label", "origin", positional=1)
+    _not_periods(indexed.frame, indexed.key, ctx)
     bins = _bins_checked(call, ctx)
     return _group_bins(indexed.code.method("resample", bins.freq, **_options(call)),
                        indexed.frame, indexed.grouped, indexed.key, bins, indexed.selection,
@@ -410,17 +413,31 @@ def groupby_resample(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo("the frame keeps an index (after a groupby): call reset_index() first")
     if any(grouped.frame.dtype(k) == "category" for k in grouped.keys):
         raise ctx.todo("category keys: pandas adds the categories no row has")
+    _not_periods(grouped.frame, on, ctx)
     bins = _bins_checked(call, ctx)
     pandas = handover.to_pandas(grouped).method("resample", bins.freq, on=on, **_options(call))
     return _group_bins(pandas, grouped.frame, grouped.keys, on, bins, grouped.selection,
                        grouped.single, ctx)
 
 
-def _bins_checked(call: PandasCall, ctx: RuleContext) -> Bins:
-    bins = bins_of(call.const("rule", 0))
+def _not_periods(frame: Frame, time: str, ctx: RuleContext) -> None:
+    """A column of periods (dt.to_period) is binned by pandas with period frequencies ("M" is
+    still the month there, and "ME" is refused): porter bins timestamps only."""
+    dtype = frame.dtype(time)
+    if isinstance(dtype, str) and dtype.startswith("period"):
+        raise ctx.todo(f"{time!r} holds periods ({dtype}): pandas resamples them by period "
+                       "frequency; porter bins timestamps")
+
+
+def _bins_checked(call: PandasCall, ctx: RuleContext, name: str = "rule") -> Bins:
+    bins = bins_of(call.const(name, 0 if name == "rule" else None))
     _check_options(call, bins)
     if bins.caveat:
         ctx.lower(bins.caveat, 0.95)
+    if bins.renamed:
+        # pandas 2.2 renamed the alias and pandas 3 rejects the old name: the same offset
+        ctx.lower(f"{bins.renamed!r} is read as {bins.freq!r}, its name since pandas 2.2 "
+                  "(pandas 3.1 rejects the old one)", 1.0)
     return bins
 
 

@@ -338,13 +338,22 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
         return True
 
     inputs = [call.receiver, *call.args, *call.kwargs.values()]
+    renamed = modern_frequencies(node)
     if not any(rewritten(v) for v in inputs):
+        if renamed:
+            # an old frequency alias pandas 3 rejects, written as pandas 3.1 names it
+            new = node.with_changes(args=[  # type: ignore[attr-defined]
+                arg.with_changes(value=cst.SimpleString(f'"{renamed[i]}"')) if i in renamed else arg
+                for i, arg in enumerate(node.args)])  # type: ignore[attr-defined]
+            return Code(cst.Module([]).code_for_node(new))
         return Code(source(node))  # nothing to hand over: the call stays exactly as written
     if isinstance(node, cst.Call):
         args = []
-        for arg in node.args:
+        for i, arg in enumerate(node.args):
             value = _argument_value(call, arg)
             text = to_pandas(value).text if rewritten(value) else source(arg.value)  # type: ignore[arg-type]
+            if i in renamed:
+                text = f'"{renamed[i]}"'
             star = arg.star or ""
             args.append(f"{arg.keyword.value}={text}" if arg.keyword else f"{star}{text}")
         func = node.func
@@ -377,6 +386,54 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
     if isinstance(node, cst.UnaryOperation) and call.receiver is not None:
         return emit.unary(call.name, to_pandas(call.receiver))
     return Code(source(node))
+
+
+# calls taking a frequency: the method's or function's name -> (the keyword, its position, an
+# offset or a period)
+_FREQUENCY_ARGS = {
+    "resample": ("rule", 0, "either"), "asfreq": ("freq", 0, "either"),
+    "floor": ("freq", 0, "offset"), "ceil": ("freq", 0, "offset"), "round": ("freq", 0, "offset"),
+    "date_range": ("freq", 3, "offset"), "bdate_range": ("freq", 3, "offset"),
+    "Grouper": ("freq", None, "offset"),
+    "to_period": ("freq", 0, "period"), "period_range": ("freq", 3, "period"),
+}
+
+
+def modern_frequencies(node: cst.CSTNode) -> dict[int, str]:
+    """The arguments of a call kept on pandas that write a frequency alias pandas 3 rejects
+    ("M", "15T"; rules/legacy.py), by their index, with pandas 3.1's name for it: the script
+    ran on the pandas that had it, and the kept call runs on pandas 3.1."""
+    from porter.rules.legacy import modern_offset, modern_period, period_accepted
+    if not isinstance(node, cst.Call):
+        return {}
+    func = node.func
+    name = func.attr.value if isinstance(func, cst.Attribute) else \
+        func.value if isinstance(func, cst.Name) else None
+    if name not in _FREQUENCY_ARGS:
+        return {}
+    keyword, position, kind = _FREQUENCY_ARGS[name]
+    modern = modern_period if kind == "period" else modern_offset
+    if kind == "either":
+        # resample / asfreq of periods read period frequencies ("M" is still the month there):
+        # only an alias pandas 3.1 refuses for periods too is renamed (the call failed either
+        # way), to its offset name ("H": "h", "BM": "BME")
+        def modern(freq: str) -> str | None:  # noqa: F811
+            return None if period_accepted(freq) else modern_offset(freq)
+    found = {}
+    positional = 0
+    for i, arg in enumerate(node.args):
+        if arg.star:
+            return {}
+        if arg.keyword is None:
+            at = positional == position
+            positional += 1
+        else:
+            at = arg.keyword.value == keyword
+        if at and isinstance(arg.value, cst.SimpleString):
+            new = modern(arg.value.evaluated_value)
+            if new is not None:
+                found[i] = new
+    return found
 
 
 def _argument_value(call: PandasCall, arg: cst.Arg) -> Value | None:

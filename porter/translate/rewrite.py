@@ -158,6 +158,15 @@ class ChildRewriter(cst.CSTTransformer):
                 and id(original.for_in.iter) in self.replacements:
             for_in = updated.for_in.with_changes(iter=self.replacements[id(original.for_in.iter)])
             return updated.with_changes(for_in=for_in)
+        if isinstance(original, cst.Call) and self._on_pandas(original):
+            renamed = handover.modern_frequencies(original)
+            if renamed:
+                # a method of a pandas object kept as written, given a frequency alias pandas 3
+                # rejects ("M", "15T"): written as pandas 3.1 names it, so the port runs
+                self.changed = True
+                return updated.with_changes(args=[  # type: ignore[attr-defined]
+                    a.with_changes(value=cst.SimpleString(f'"{renamed[i]}"')) if i in renamed else a
+                    for i, a in enumerate(updated.args)])  # type: ignore[attr-defined]
         replacement = self.replacements.get(id(original))
         if replacement is not None:
             if getattr(original, "lpar", None):
@@ -165,6 +174,21 @@ class ChildRewriter(cst.CSTTransformer):
             return replacement
         return updated
 
+
+    def _on_pandas(self, call: cst.Call) -> bool:
+        """Whether a method call's receiver is (built on) a pandas value this rewrite handed over."""
+        if not isinstance(call.func, cst.Attribute):
+            return False
+        node: cst.CSTNode = call.func
+        while True:
+            if id(node) in self.replacements:
+                return self.pandas_inside
+            if isinstance(node, cst.Call):
+                node = node.func
+            elif isinstance(node, (cst.Attribute, cst.Subscript)):
+                node = node.value
+            else:
+                return False
 
     def _joined(self, node: cst.BaseExpression) -> cst.BaseExpression:
         """`"a" f"..."` with its f-strings made `str.format` calls, joined by `+`."""
