@@ -419,7 +419,8 @@ def _index_of(frame: Frame, ctx: RuleContext) -> Value:
     if frame.dtype(key) == "datetime":
         return Accessor(Code(f"{frame.code.text}.index"), column=column_of(frame, key),
                         kind="dt", index_of=frame)
-    return replace(column_of(frame, key), name=None if frame.index_unnamed else key)
+    return replace(column_of(frame, key), name=None if frame.index_unnamed else key,
+                   index_values=True)
 
 
 @rule("frame.index.assign")
@@ -747,6 +748,11 @@ def series_getitem(call: PandasCall, ctx: RuleContext) -> Value:
     column = call.receiver
     assert isinstance(column, Column)
     key = call.args[0]
+    if isinstance(key, Opaque) and type(key.const) is int and column.index_values:
+        # an Index (s.index[0]) is read by position, whatever its values: the first key in
+        # the Series' order (a negative position counts from the end in both)
+        from porter.rules.materialize import series_position
+        return series_position(call, ctx)
     if isinstance(key, Opaque) and type(key.const) is int and key.const >= 0 \
             and column.frame.labels_intact and not column.frame.index:
         from porter.rules.materialize import series_position

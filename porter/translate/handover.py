@@ -173,6 +173,15 @@ def to_pandas(value: Value) -> Code:
     if isinstance(value, Column):
         if getattr(value, "pandas", None) is not None:
             return value.pandas  # type: ignore[attr-defined]  # pandas makes it again (rules/windows.py)
+        if value.index_values:
+            # pandas' Index: its values by position ([0] is the first, `in` looks at the
+            # values), not a Series labelled by the key (whose [0] is a label and whose `in`
+            # reads the labels, the key before idx.str.upper() changed it)
+            plain = to_pandas(replace(value, frame=replace(value.frame, index=()),
+                                      index_values=False))
+            label = value.name if value.name is not None else 0
+            code = plain.method("to_frame").method("set_index", label).attr("index")
+            return code.method("rename", None) if value.name is None else code
         if value.frame.index:
             name = value.name if value.name is not None else "0"
             renamed = name if name in value.frame.index else None

@@ -1,0 +1,72 @@
+"""s.index[i] reads a pandas Index by position: the i-th key in the Series' order, never the
+row whose key equals i (what s[i] would do on a Series labelled by its key).
+
+pandas is the reference: each check runs the snippet with pandas and its conversion with
+Polars and compares (a lighthouse keepers' guild's watch hours, a tram depot's fault counts).
+"""
+
+from __future__ import annotations
+
+import pytest
+
+from support import converted_text, differential
+
+WATCHES = """
+    import numpy as np
+    import pandas as pd
+    df = pd.DataFrame({
+        "keeper": ["K02", "k01", "K03", "k01", None, "K02", "Ørn", "K03"],
+        "faults": [-1, 0, 2, 2, 5, -1, 0, 7],
+        "hours": [4.0, 8.0, np.nan, 12.0, 6.0, 8.0, 0.0, 6.0],
+    })
+"""
+
+
+@pytest.mark.parametrize("position", [0, 1, 2, -1, -2])
+def test_integer_keys_are_read_by_position_not_by_label(position: int) -> None:
+    # keys -1, 0, 2, 5, 7: index[0] is -1 (label 0 is the second key), index[1] is 0 and
+    # label 1 is no key at all
+    differential(WATCHES + f"""
+    per = df.groupby("faults")["hours"].sum()
+    result = per.index[{position}]
+    shifted = (per.index + 1)[{position}]
+    """, "result", "shifted")
+
+
+@pytest.mark.parametrize("position", [0, 1, -1])
+def test_text_keys_after_a_sort_are_read_by_position(position: int) -> None:
+    # the busiest keeper first: a key of text, in the order of the sorted sums
+    differential(WATCHES + f"""
+    top = df.groupby("keeper")["hours"].sum().sort_values(ascending=False)
+    result = top.index[{position}]
+    upper = top.index.str.upper()[{position}]
+    """, "result", "upper")
+
+
+def test_index_of_an_aggregated_frame_is_read_by_position() -> None:
+    differential(WATCHES + """
+    per = df.groupby("keeper").agg({"hours": "sum", "faults": "max"})
+    result = per.index[0]
+    last = per.index[-1]
+    """, "result", "last")
+
+
+def test_index_handed_over_is_an_index() -> None:
+    # what porter leaves on pandas gets pandas' Index: `in` reads its values (after
+    # str.upper() too), a comprehension its values in order
+    source = WATCHES + """
+    top = df.groupby("keeper")["hours"].sum().sort_values(ascending=False)
+    result = "K01" in top.index.str.upper()
+    missing = "k01" in top.index.str.upper()
+    names = [k for k in top.index]
+    """
+    differential(source, "result", "missing", "names")
+
+
+def test_index_position_needs_no_pandas_series() -> None:
+    text = converted_text(WATCHES + """
+    per = df.groupby("faults")["hours"].sum()
+    result = per.index[0]
+    """)
+    assert 'pl.col("faults").get(0)' in text
+    assert "TODO(porter)" not in text.split("per = ")[1]
