@@ -70,3 +70,13 @@ def test_index_position_needs_no_pandas_series() -> None:
     """)
     assert 'pl.col("faults").get(0)' in text
     assert "TODO(porter)" not in text.split("per = ")[1]
+
+
+def test_value_counts_index_is_read_by_position() -> None:
+    # the most frequent value first: value_counts' keys are whole numbers here, so a label
+    # read would take the count of the value 0, or fail
+    differential(WATCHES + """
+    counts = df["faults"].value_counts()
+    result = counts.head(1).index[0]
+    line = f"{counts.index[0]}|{counts.index[-1]}"
+    """, "result", "line")
