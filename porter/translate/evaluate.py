@@ -122,6 +122,9 @@ class Services:
     materialized: set[int] = field(default_factory=set)
     # Series kept in a name whose frame's name later holds other rows: kept as a frame of its own
     stale_series: set[int] = field(default_factory=set)
+    # the iterrows() calls (by node id) of `for label, row in df.iterrows():` loops that read
+    # no row label: the label is never read, the row only by column (engine.label_free_loops)
+    label_free_loops: frozenset[int] = frozenset()
     # frames bound to a name whose row labels pandas code reads later (`pos.index`) after a
     # filter or sort made them other than 0..n-1: the next pass has pandas make them
     labels_needed: set[int] = field(default_factory=set)
@@ -1029,7 +1032,8 @@ class Evaluator:
         fallback = handover.pandas_fallback(call, self.source, node)
         self.note_alignment(key, call)
         labels_unread = (key in _LABELS_NOT_READ or key.startswith(_ELEMENT_PREFIXES)) \
-            and not {"left_index", "right_index"} & set(call.kwargs)
+            and not {"left_index", "right_index"} & set(call.kwargs) \
+            or key == "frame.iterrows" and id(node) in self.services.label_free_loops
         sites = _child_sites(call, None) + (site,)
         if key not in _ELEMENT_CALLS and not labels_unread \
                 and not (key == "frame.apply" and self.rows_without_labels(call)):
