@@ -844,14 +844,17 @@ class Evaluator:
         if isinstance(receiver, Scalar) and receiver.pytype == "list[str]" and receiver.of is not None \
                 and len(node.slice) == 1 and isinstance(node.slice[0].slice, cst.Index):
             key = self.eval(node.slice[0].slice.value)
-            if isinstance(key, PandasValue):
-                # df.columns[<a mask pandas computed>]: porter's names are a list, which a
-                # boolean array cannot index; pandas' Index of the names can
+            if isinstance(key, PandasValue) or isinstance(key, (Column, Frame)) \
+                    and isinstance(node.value, cst.Attribute) and node.value.attr.value == "columns":
+                # df.columns[<a mask pandas computed>], df.columns[df.isna().any()]: porter's
+                # names are a list, which a boolean array or Series cannot index; pandas'
+                # Index of the names can (by position: a Series' labels are not read)
                 line, end_line = self.services.position(node)
                 site = SiteDraft("frame.columns.index", "todo", "todo", 0.0,
                                  "the column names selected by a mask pandas computed: pandas' "
                                  "Index of the names", line, end_line)
-                code = handover.to_pandas(receiver.of).attr("columns").index(key.code)
+                mask = key.code if isinstance(key, PandasValue) else handover.to_pandas(key)
+                code = _pandas_names(receiver.of).index(mask)
                 return PandasValue(code, sites=receiver.sites + key.sites + (site,))
         if not isinstance(receiver, (Frame, Column, Grouped, Indexer, Accessor, Parts, Resampled,
                                      Indexed)):
@@ -926,6 +929,24 @@ class Evaluator:
         target = node.comparisons[0]
         right = self.eval(target.comparator)
         op = COMPARE_OPS[type(target.operator)]
+        # df.columns as written (pandas' Index), not a list made of it (list(df.columns),
+        # tolist(): a list compares whole in pandas too)
+        names = next((v for v, n in ((left, node.left), (right, target.comparator))
+                      if isinstance(v, Scalar) and v.of is not None and v.pytype == "list[str]"
+                      and isinstance(n, cst.Attribute) and n.attr.value == "columns"), None)
+        other = right if names is left else left
+        if names is not None and op in ("==", "!=", "<", "<=", ">", ">=") \
+                and isinstance(other, Opaque) and other.is_const:
+            # df.columns != "k": pandas compares each name (a boolean array); porter's names
+            # are a list, which compares whole (one True/False): pandas' Index of the names
+            line, end_line = self.services.position(node)
+            site = SiteDraft("frame.columns.compare", "todo", "todo", 0.0,
+                             "the column names compared one by one: pandas' Index of the names "
+                             "(a boolean array)", line, end_line)
+            labels = _pandas_names(names.of)
+            code = emit.binop(labels, op, other.code) if names is left \
+                else emit.binop(other.code, op, labels)
+            return PandasValue(code, sites=names.sites + other.sites + (site,))
         if not (_is_series_like(left) or _is_series_like(right)) or op in ("in", "not in", "is", "is not"):
             return self.generic(node)
         return self.dispatch("series.compare", PandasCall(left, op, (right,), node=node), node)
@@ -1247,6 +1268,12 @@ def _plain_format_spec(part: cst.FormattedStringExpression) -> str | None:
     if not all(isinstance(p, cst.FormattedStringText) for p in part.format_spec):
         return None
     return "".join(p.value for p in part.format_spec)  # type: ignore[union-attr]
+
+
+def _pandas_names(frame: Frame) -> Code:
+    """pandas' Index of the frame's column names (its labels as pandas holds them), from no
+    rows."""
+    return handover.to_pandas(replace(frame, code=frame.code.method("head", 0))).attr("columns")
 
 
 def _only_by_column(body: cst.CSTNode, param: str) -> bool:
