@@ -80,3 +80,17 @@ def test_value_counts_index_is_read_by_position() -> None:
     result = counts.head(1).index[0]
     line = f"{counts.index[0]}|{counts.index[-1]}"
     """, "result", "line")
+
+
+@pytest.mark.parametrize("expr", [
+    "top.index[top.values > 6].tolist()",
+    "top.index[top.values.argmax()]",
+    "top.index[top > 6].tolist()",
+])
+def test_index_chosen_by_a_mask_of_the_values(expr: str) -> None:
+    # the mask is computed by porter (the values read from Polars) and given to pandas' Index
+    # as computed: the source's `top.values` would read a LazyFrame
+    differential(WATCHES + f"""
+    top = df.groupby("keeper")["hours"].sum().sort_values(ascending=False)
+    result = {expr}
+    """)

@@ -372,9 +372,15 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
         for i, element in enumerate(node.slice):
             key = keys[i] if len(keys) == len(node.slice) else None
             # a key computed from a frame (`df.loc[df.index < 1, "a"]`) is handed over too
-            parts.append(to_pandas(key).text if isinstance(element.slice, cst.Index)
-                         and key is not None and not isinstance(key, Opaque)
-                         else source(element.slice))
+            if isinstance(element.slice, cst.Index) and key is not None \
+                    and not isinstance(key, Opaque):
+                parts.append(to_pandas(key).text)
+            elif isinstance(element.slice, cst.Index) and isinstance(key, Opaque) \
+                    and (key.node is None or key.code.text != source(key.node)):
+                # a key porter rewrote (`s.index[s.values > 1]`: the values read from Polars)
+                parts.append(key.code.text)
+            else:
+                parts.append(source(element.slice))
         inner = ", ".join(parts)
         base = to_pandas(receiver).wrapped(emit.ATOM)
         if isinstance(node.value, cst.Attribute) and node.value.attr.value in ("loc", "iloc") \
