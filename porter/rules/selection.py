@@ -717,6 +717,19 @@ def shape(call: PandasCall, ctx: RuleContext) -> Value:
     return Scalar(emit.Code(f"({row_count(frame).text}, {width.text})"), pytype="tuple")
 
 
+@rule("series.shape")
+def series_shape(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.shape -> (rows,): its frame's rows counted by a query; s.shape[0] counts only.
+
+    Handles: a column of a frame (filtered or not), a groupby's result (one row per group)."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    count = row_count(column.frame)
+    if call.args:  # s.shape[0] / s.shape[-1] (evaluate.shape_item)
+        return Scalar(count, pytype="int")
+    return Scalar(emit.Code(f"({count.text},)"), pytype="tuple")
+
+
 @rule("builtin.len")
 def length(call: PandasCall, ctx: RuleContext) -> Value:
     """len(df) / len(s) -> .select(pl.len()).collect().item()."""

@@ -883,6 +883,10 @@ class Evaluator:
             return None
         frame = self.eval(owner.value)
         key = self.eval(node.slice[0].slice.value)
+        if isinstance(frame, Column) and not frame.element and isinstance(key, Opaque) \
+                and key.const in (0, -1) and not isinstance(key.const, bool):
+            # s.shape[0]: a Series has one dimension
+            return self.dispatch("series.shape", PandasCall(frame, "shape", (key,), node=node), node)
         if not (isinstance(frame, Frame) and isinstance(key, Opaque) and key.const in (0, 1, -1, -2)
                 and not isinstance(key.const, bool)):
             return None
