@@ -94,3 +94,21 @@ def test_index_chosen_by_a_mask_of_the_values(expr: str) -> None:
     top = df.groupby("keeper")["hours"].sum().sort_values(ascending=False)
     result = {expr}
     """)
+
+
+@pytest.mark.parametrize("expr", [
+    "per.index.sort_values()[0]",
+    "per.index.sort_values(ascending=False)[1]",
+    "per.index[per.index > 0][0]",
+    "per.index.drop_duplicates()[-1]",
+    "per.index.map({-1: 10, 0: 20, 2: 30, 5: 40, 7: 50})[1]",
+    "per.index.to_series().sort_values()[0]",    # a Series labelled by the keys: label 0
+    "per.index.value_counts()[5]",               # counted by value: label 5
+])
+def test_what_an_index_method_gives_is_read_as_pandas_reads_it(expr: str) -> None:
+    # an Index method gives an Index (read by position); to_series and value_counts give a
+    # Series labelled by the values (read by label)
+    differential(WATCHES + f"""
+    per = df.groupby("faults")["hours"].sum().sort_values(ascending=False)
+    result = {expr}
+    """)

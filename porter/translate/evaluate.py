@@ -1008,6 +1008,13 @@ class Evaluator:
                 call = replace(call, args=(call.args[0], aligned.with_sites(*call.args[1].sites)))
         try:
             result = lost_float_ints(key, call, fn(call, ctx), ctx)
+            receiver = call.receiver
+            if isinstance(receiver, Column) and receiver.index_values \
+                    and isinstance(result, Column) and not result.index_values \
+                    and key not in _INDEX_TO_SERIES:
+                # a method of pandas' Index gives an Index again (idx.sort_values()[0] is the
+                # first value by position)
+                result = replace(result, index_values=True)
         except Unsupported as exc:
             return self.todo(key, call, node, exc.reason, entry=entry)
         except Exception as exc:  # noqa: BLE001 - a rule that cannot read this call keeps pandas
@@ -1272,6 +1279,11 @@ def _plain_format_spec(part: cst.FormattedStringExpression) -> str | None:
     if not all(isinstance(p, cst.FormattedStringText) for p in part.format_spec):
         return None
     return "".join(p.value for p in part.format_spec)  # type: ignore[union-attr]
+
+
+# methods of pandas' Index that give a Series (labelled by the values, or counted by them)
+_INDEX_TO_SERIES = frozenset({"series.to_series", "series.value_counts", "series.reset_index",
+                              "pd.Series", "series.to_frame"})
 
 
 def _pandas_names(frame: Frame) -> Code:
