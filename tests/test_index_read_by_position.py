@@ -112,3 +112,10 @@ def test_what_an_index_method_gives_is_read_as_pandas_reads_it(expr: str) -> Non
     per = df.groupby("faults")["hours"].sum().sort_values(ascending=False)
     result = {expr}
     """)
+
+
+@pytest.mark.parametrize("expr", ["df.index[-1]", 'df["hours"].index[-2]', "df.index[0]"])
+def test_row_numbers_are_read_by_position_from_the_end_too(expr: str) -> None:
+    # pandas' RangeIndex: df.index[-1] is the last row number (a Series of the numbers would
+    # read -1 as a label and fail)
+    differential(WATCHES + f"    result = {expr}\n")

@@ -411,7 +411,8 @@ def _index_of(frame: Frame, ctx: RuleContext) -> Value:
     labelled 0..n-1, its row numbers (pl.int_range: pandas' RangeIndex)."""
     if not frame.index and frame.labels_intact:
         numbers = emit.pl("int_range", emit.pl("len"), dtype=emit.atom("pl.Int64"))
-        return Column(numbers, frame=frame, name=None, dtype="int")
+        # pandas' RangeIndex: read by position too (df.index[-1] is the last row number)
+        return Column(numbers, frame=frame, name=None, dtype="int", index_values=True)
     if len(frame.index) != 1:
         raise ctx.todo("the index is not data in Polars: keep the labels in a column "
                        "(with_row_index) and use it")
