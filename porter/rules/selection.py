@@ -415,7 +415,8 @@ def _index_of(frame: Frame, ctx: RuleContext) -> Value:
     labelled 0..n-1, its row numbers (pl.int_range: pandas' RangeIndex)."""
     if not frame.index and frame.labels_intact:
         numbers = emit.pl("int_range", emit.pl("len"), dtype=emit.atom("pl.Int64"))
-        return Column(numbers, frame=frame, name=None, dtype="int")
+        # pandas' RangeIndex: read by position too (df.index[-1] is the last row number)
+        return Column(numbers, frame=frame, name=None, dtype="int", index_values=True)
     if len(frame.index) != 1:
         raise ctx.todo("the index is not data in Polars: keep the labels in a column "
                        "(with_row_index) and use it")
@@ -423,7 +424,8 @@ def _index_of(frame: Frame, ctx: RuleContext) -> Value:
     if frame.dtype(key) == "datetime":
         return Accessor(Code(f"{frame.code.text}.index"), column=column_of(frame, key),
                         kind="dt", index_of=frame)
-    return replace(column_of(frame, key), name=None if frame.index_unnamed else key)
+    return replace(column_of(frame, key), name=None if frame.index_unnamed else key,
+                   index_values=True)
 
 
 @rule("frame.index.assign")
@@ -720,6 +722,19 @@ def shape(call: PandasCall, ctx: RuleContext) -> Value:
     return Scalar(emit.Code(f"({row_count(frame).text}, {width.text})"), pytype="tuple")
 
 
+@rule("series.shape")
+def series_shape(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.shape -> (rows,): its frame's rows counted by a query; s.shape[0] counts only.
+
+    Handles: a column of a frame (filtered or not), a groupby's result (one row per group)."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    count = row_count(column.frame)
+    if call.args:  # s.shape[0] / s.shape[-1] (evaluate.shape_item)
+        return Scalar(count, pytype="int")
+    return Scalar(emit.Code(f"({count.text},)"), pytype="tuple")
+
+
 @rule("builtin.len")
 def length(call: PandasCall, ctx: RuleContext) -> Value:
     """len(df) / len(s) -> .select(pl.len()).collect().item()."""
@@ -751,6 +766,11 @@ def series_getitem(call: PandasCall, ctx: RuleContext) -> Value:
     column = call.receiver
     assert isinstance(column, Column)
     key = call.args[0]
+    if isinstance(key, Opaque) and type(key.const) is int and column.index_values:
+        # an Index (s.index[0]) is read by position, whatever its values: the first key in
+        # the Series' order (a negative position counts from the end in both)
+        from porter.rules.materialize import series_position
+        return series_position(call, ctx)
     if isinstance(key, Opaque) and type(key.const) is int and key.const >= 0 \
             and column.frame.labels_intact and not column.frame.index:
         from porter.rules.materialize import series_position

@@ -481,6 +481,7 @@ def derived_column(base: Column, code: Code, *, dtype: str | None = None,
         refs=frozenset(refs),
         versions=tuple(versions.items()),
         element=base.element,
+        index_values=base.index_values,  # idx.str.upper() of an Index is an Index
     )
 
 

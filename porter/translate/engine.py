@@ -101,6 +101,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
 
     services.code_for = module.code_for_node
     services.name_uses = _name_counts(module)
+    services.label_free_loops = label_free_loops(module)
     services.name_lines = {name: [positions[n].start.line for n in nodes]
                            for name, nodes in _name_nodes(module).items()}
     services.changed_in_place = {name: [position(n)[0] for n in nodes]
@@ -2409,6 +2410,71 @@ def _changed_by_functions(node: cst.CSTNode, functions: dict[str, Any]) -> list[
 
     node.visit(Calls())
     return found
+
+
+def label_free_loops(module: cst.Module) -> frozenset[int]:
+    """The iterrows() calls (by node id) of `for label, row in df.iterrows():` loops whose
+    label is read nowhere (in the body or after the loop) and whose row is read only in the
+    body, by column (row["kg"], row.kg; never row.name): what they compute does not depend on
+    the row labels, so a frame filtered or sorted before them need not keep pandas' labels."""
+    from porter.translate.evaluate import _only_by_column
+    found: set[int] = set()
+
+    class Loops(cst.CSTVisitor):
+        def visit_For(self, stmt: cst.For) -> None:
+            it, target = stmt.iter, stmt.target
+            if not (isinstance(it, cst.Call) and not it.args and isinstance(it.func, cst.Attribute)
+                    and it.func.attr.value == "iterrows" and isinstance(target, cst.Tuple)
+                    and len(target.elements) == 2
+                    and all(isinstance(e.value, cst.Name) for e in target.elements)
+                    and stmt.orelse is None):
+                return
+            label, row = (e.value.value for e in target.elements)  # type: ignore[attr-defined]
+            if label == row or _free_uses(stmt.body, label) \
+                    or (label != "_" and _free_uses(module, label) > 1) \
+                    or _free_uses(module, row) != _free_uses(stmt.body, row) + 1 \
+                    or not _only_by_column(stmt.body, row):
+                return  # the label is read, or the row after the loop or as a whole
+            found.add(id(it))
+
+    module.visit(Loops())
+    return frozenset(found)
+
+
+def _free_uses(node: cst.CSTNode, name: str) -> int:
+    """How many times `name` is written in `node` as the same variable: a lambda whose
+    parameter has the name (`lambda r: r["kg"]`) has a variable of its own."""
+    count = 0
+
+    class Count(cst.CSTVisitor):
+        def visit_Name(self, n: cst.Name) -> None:
+            nonlocal count
+            count += n.value == name
+
+        def visit_Attribute(self, n: cst.Attribute) -> bool:
+            n.value.visit(self)
+            return False
+
+        def visit_Arg(self, n: cst.Arg) -> bool:
+            n.value.visit(self)
+            return False
+
+        def visit_Lambda(self, n: cst.Lambda) -> bool:
+            params = n.params
+            bound = {p.name.value for p in (*params.posonly_params, *params.params,
+                                            *params.kwonly_params)}
+            for extra in (params.star_arg, params.star_kwarg):
+                if isinstance(extra, cst.Param):
+                    bound.add(extra.name.value)
+            if name in bound:
+                for p in (*params.posonly_params, *params.params, *params.kwonly_params):
+                    if p.default is not None:
+                        p.default.visit(self)  # defaults are read outside the lambda
+                return False
+            return True
+
+    node.visit(Count())
+    return count
 
 
 def _row_appends(stmt: cst.For) -> tuple[str, str, list[tuple[str, cst.BaseExpression]]] | None:

@@ -123,6 +123,9 @@ class Services:
     materialized: set[int] = field(default_factory=set)
     # Series kept in a name whose frame's name later holds other rows: kept as a frame of its own
     stale_series: set[int] = field(default_factory=set)
+    # the iterrows() calls (by node id) of `for label, row in df.iterrows():` loops that read
+    # no row label: the label is never read, the row only by column (engine.label_free_loops)
+    label_free_loops: frozenset[int] = frozenset()
     # frames bound to a name whose row labels pandas code reads later (`pos.index`) after a
     # filter or sort made them other than 0..n-1: the next pass has pandas make them
     labels_needed: set[int] = field(default_factory=set)
@@ -845,14 +848,17 @@ class Evaluator:
         if isinstance(receiver, Scalar) and receiver.pytype == "list[str]" and receiver.of is not None \
                 and len(node.slice) == 1 and isinstance(node.slice[0].slice, cst.Index):
             key = self.eval(node.slice[0].slice.value)
-            if isinstance(key, PandasValue):
-                # df.columns[<a mask pandas computed>]: porter's names are a list, which a
-                # boolean array cannot index; pandas' Index of the names can
+            if isinstance(key, PandasValue) or isinstance(key, (Column, Frame)) \
+                    and isinstance(node.value, cst.Attribute) and node.value.attr.value == "columns":
+                # df.columns[<a mask pandas computed>], df.columns[df.isna().any()]: porter's
+                # names are a list, which a boolean array or Series cannot index; pandas'
+                # Index of the names can (by position: a Series' labels are not read)
                 line, end_line = self.services.position(node)
                 site = SiteDraft("frame.columns.index", "todo", "todo", 0.0,
                                  "the column names selected by a mask pandas computed: pandas' "
                                  "Index of the names", line, end_line)
-                code = handover.to_pandas(receiver.of).attr("columns").index(key.code)
+                mask = key.code if isinstance(key, PandasValue) else handover.to_pandas(key)
+                code = _pandas_names(receiver.of).index(mask)
                 return PandasValue(code, sites=receiver.sites + key.sites + (site,))
         if not isinstance(receiver, (Frame, Column, Grouped, Indexer, Accessor, Parts, Resampled,
                                      Indexed)):
@@ -881,6 +887,10 @@ class Evaluator:
             return None
         frame = self.eval(owner.value)
         key = self.eval(node.slice[0].slice.value)
+        if isinstance(frame, Column) and not frame.element and isinstance(key, Opaque) \
+                and key.const in (0, -1) and not isinstance(key.const, bool):
+            # s.shape[0]: a Series has one dimension
+            return self.dispatch("series.shape", PandasCall(frame, "shape", (key,), node=node), node)
         if not (isinstance(frame, Frame) and isinstance(key, Opaque) and key.const in (0, 1, -1, -2)
                 and not isinstance(key.const, bool)):
             return None
@@ -927,6 +937,24 @@ class Evaluator:
         target = node.comparisons[0]
         right = self.eval(target.comparator)
         op = COMPARE_OPS[type(target.operator)]
+        # df.columns as written (pandas' Index), not a list made of it (list(df.columns),
+        # tolist(): a list compares whole in pandas too)
+        names = next((v for v, n in ((left, node.left), (right, target.comparator))
+                      if isinstance(v, Scalar) and v.of is not None and v.pytype == "list[str]"
+                      and isinstance(n, cst.Attribute) and n.attr.value == "columns"), None)
+        other = right if names is left else left
+        if names is not None and op in ("==", "!=", "<", "<=", ">", ">=") \
+                and isinstance(other, Opaque) and other.is_const:
+            # df.columns != "k": pandas compares each name (a boolean array); porter's names
+            # are a list, which compares whole (one True/False): pandas' Index of the names
+            line, end_line = self.services.position(node)
+            site = SiteDraft("frame.columns.compare", "todo", "todo", 0.0,
+                             "the column names compared one by one: pandas' Index of the names "
+                             "(a boolean array)", line, end_line)
+            labels = _pandas_names(names.of)
+            code = emit.binop(labels, op, other.code) if names is left \
+                else emit.binop(other.code, op, labels)
+            return PandasValue(code, sites=names.sites + other.sites + (site,))
         if not (_is_series_like(left) or _is_series_like(right)) or op in ("in", "not in", "is", "is not"):
             return self.generic(node)
         return self.dispatch("series.compare", PandasCall(left, op, (right,), node=node), node)
@@ -984,6 +1012,13 @@ class Evaluator:
                 call = replace(call, args=(call.args[0], aligned.with_sites(*call.args[1].sites)))
         try:
             result = lost_float_ints(key, call, fn(call, ctx), ctx)
+            receiver = call.receiver
+            if isinstance(receiver, Column) and receiver.index_values \
+                    and isinstance(result, Column) and not result.index_values \
+                    and key not in _INDEX_TO_SERIES:
+                # a method of pandas' Index gives an Index again (idx.sort_values()[0] is the
+                # first value by position)
+                result = replace(result, index_values=True)
         except Unsupported as exc:
             return self.todo(key, call, node, exc.reason, entry=entry)
         except Exception as exc:  # noqa: BLE001 - a rule that cannot read this call keeps pandas
@@ -1033,7 +1068,8 @@ class Evaluator:
         fallback = handover.pandas_fallback(call, self.source, node)
         self.note_alignment(key, call)
         labels_unread = (key in _LABELS_NOT_READ or key.startswith(_ELEMENT_PREFIXES)) \
-            and not {"left_index", "right_index"} & set(call.kwargs)
+            and not {"left_index", "right_index"} & set(call.kwargs) \
+            or key == "frame.iterrows" and id(node) in self.services.label_free_loops
         sites = _child_sites(call, None) + (site,)
         if key not in _ELEMENT_CALLS and not labels_unread \
                 and not (key == "frame.apply" and self.rows_without_labels(call)):
@@ -1252,6 +1288,17 @@ def _plain_format_spec(part: cst.FormattedStringExpression) -> str | None:
     if not all(isinstance(p, cst.FormattedStringText) for p in part.format_spec):
         return None
     return "".join(p.value for p in part.format_spec)  # type: ignore[union-attr]
+
+
+# methods of pandas' Index that give a Series (labelled by the values, or counted by them)
+_INDEX_TO_SERIES = frozenset({"series.to_series", "series.value_counts", "series.reset_index",
+                              "pd.Series", "series.to_frame"})
+
+
+def _pandas_names(frame: Frame) -> Code:
+    """pandas' Index of the frame's column names (its labels as pandas holds them), from no
+    rows."""
+    return handover.to_pandas(replace(frame, code=frame.code.method("head", 0))).attr("columns")
 
 
 def _only_by_column(body: cst.CSTNode, param: str) -> bool:

@@ -173,6 +173,15 @@ def to_pandas(value: Value) -> Code:
     if isinstance(value, Column):
         if getattr(value, "pandas", None) is not None:
             return value.pandas  # type: ignore[attr-defined]  # pandas makes it again (rules/windows.py)
+        if value.index_values:
+            # pandas' Index: its values by position ([0] is the first, `in` looks at the
+            # values), not a Series labelled by the key (whose [0] is a label and whose `in`
+            # reads the labels, the key before idx.str.upper() changed it)
+            plain = to_pandas(replace(value, frame=replace(value.frame, index=()),
+                                      index_values=False))
+            label = value.name if value.name is not None else 0
+            code = plain.method("to_frame").method("set_index", label).attr("index")
+            return code.method("rename", None) if value.name is None else code
         if value.frame.index:
             name = value.name if value.name is not None else "0"
             renamed = name if name in value.frame.index else None
@@ -372,9 +381,15 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
         for i, element in enumerate(node.slice):
             key = keys[i] if len(keys) == len(node.slice) else None
             # a key computed from a frame (`df.loc[df.index < 1, "a"]`) is handed over too
-            parts.append(to_pandas(key).text if isinstance(element.slice, cst.Index)
-                         and key is not None and not isinstance(key, Opaque)
-                         else source(element.slice))
+            if isinstance(element.slice, cst.Index) and key is not None \
+                    and not isinstance(key, Opaque):
+                parts.append(to_pandas(key).text)
+            elif isinstance(element.slice, cst.Index) and isinstance(key, Opaque) \
+                    and (key.node is None or key.code.text != source(key.node)):
+                # a key porter rewrote (`s.index[s.values > 1]`: the values read from Polars)
+                parts.append(key.code.text)
+            else:
+                parts.append(source(element.slice))
         inner = ", ".join(parts)
         base = to_pandas(receiver).wrapped(emit.ATOM)
         if isinstance(node.value, cst.Attribute) and node.value.attr.value in ("loc", "iloc") \

@@ -124,6 +124,10 @@ class Column(Value):
     # pandas' nullable integer dtype of the column ("Int64", "UInt32"; Frame.nullable_ints),
     # NOT_NULLABLE when it is known not to be one, None when porter does not know
     nullable_int: str | None = field(default=None, kw_only=True)
+    # the values of a pandas Index (s.index, df.index of one key) and what is computed from
+    # them: an Index has no labels, so idx[0] is the first value by position (never the row
+    # whose key is 0), and it goes over to pandas as an Index, not a Series labelled by itself
+    index_values: bool = field(default=False, kw_only=True)
 
 
 # Column.nullable_int of a column known not to be one of pandas' nullable integers
