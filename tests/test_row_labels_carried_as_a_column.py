@@ -90,3 +90,18 @@ def test_a_label_kept_in_a_name_after_its_column_changed_is_pandas_read() -> Non
 ])
 def test_the_index_is_left_out_where_pandas_leaves_it_out(made: str, body: str) -> None:
     differential(HEAD + made + body, data_dir=".")
+
+
+@pytest.mark.parametrize("body", [
+    # the script's own functions read the labels of the frames they are given: those frames
+    # are pandas' (pandas makes them), with --data too
+    'pos = df[df["cars"] > 5]\ndef top(d):\n    return d["cars"].idxmax()\nresult = [top(pos), top(df)]\n',
+    'pos = df[df["cars"] > 5]\ndef labels(d):\n    e = d[d["fare"] < 6]\n    return list(e.index)\n'
+    'result = labels(pos)\n',
+    'pos = df[df["cars"] > 5]\ndef inner(d):\n    return d.index.tolist()\n'
+    'def outer(d):\n    return inner(d)\nresult = outer(pos)\n',
+    'pos = df[df["cars"] > 5]\ndef show(d):\n    return d.index.tolist()\nx = pos.at[5, "boat"]\n'
+    'result = [show(pos), x]\n',
+])
+def test_labels_read_inside_the_scripts_own_functions(body: str) -> None:
+    differential(HEAD + body, data_dir=".")

@@ -1595,6 +1595,10 @@ class _Walker:
         reads more than one frame, a frame whose labels are renumbered already or whose columns
         are not known, or when the result leaves a TODO or (keep_index) does not keep the labels
         as its index."""
+        if self.services.label_functions:
+            # the script's own functions read the labels of frames they are given: they read
+            # them from pandas' frames (the frames passed are pandas', see made_by_pandas)
+            return None
         names = _names_read(self.services.code_for(expr))
         frames = [n for n in names if isinstance(env.get(n), Frame)]
         if len(frames) != 1:
