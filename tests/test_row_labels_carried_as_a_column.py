@@ -105,3 +105,10 @@ def test_the_index_is_left_out_where_pandas_leaves_it_out(made: str, body: str) 
 ])
 def test_labels_read_inside_the_scripts_own_functions(body: str) -> None:
     differential(HEAD + body, data_dir=".")
+
+
+def test_labels_read_in_the_keys_of_a_statement_kept_on_pandas() -> None:
+    # df.loc[pos.index, "c"] = ... stays pandas; pos, which carries its labels as a column, is
+    # handed to pandas in the key with them as its index (it was left a LazyFrame: a crash)
+    differential(HEAD + 'pos = df[df["cars"] > 5]\ndf["heavy"] = False\n'
+                 'df.loc[pos.index, "heavy"] = True\nresult = df\n', data_dir=".")

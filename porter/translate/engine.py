@@ -1495,6 +1495,8 @@ class _Walker:
             if value.code.text != self.services.code_for(statement.value):
                 text = value.code.text if "\n" not in value.code.text else f"({value.code.text})"
                 statement = statement.with_changes(value=cst.parse_expression(text))
+            # and so are those read by the keys it assigns to (`df.loc[pos.index, "c"] = 1`)
+            statement = self.keys_handed_over(statement, env)
         original = self.services.code_for(statement).strip()
         self.note_pandas_calls(original, env)
         # the whole statement stays pandas: what it uses is not converted after all
@@ -1503,6 +1505,31 @@ class _Walker:
                  if s.status == "converted" else s for s in result.sites]
         self.note_handed_over(name, frame)
         return "\n".join([*first, f"{name} = {handover.to_pandas(frame).text}", original]), sites
+
+    def keys_handed_over(self, statement: cst.Assign | cst.AugAssign,
+                         env: dict[str, Value]) -> cst.Assign | cst.AugAssign:
+        """`statement` kept on pandas with the keys of the subscripts it assigns to rewritten:
+        a frame or Series of porter's read there (`pos.index`) is handed to pandas."""
+        def rewritten(target: cst.BaseExpression) -> cst.BaseExpression:
+            if not isinstance(target, cst.Subscript):
+                return target
+            elements = []
+            for element in target.slice:
+                if isinstance(element.slice, cst.Index):
+                    node = element.slice.value
+                    value = Evaluator(env, self.services).generic(node)
+                    if value.code.text != self.services.code_for(node):
+                        text = value.code.text if "\n" not in value.code.text \
+                            else f"({value.code.text})"
+                        element = element.with_changes(slice=element.slice.with_changes(
+                            value=cst.parse_expression(text)))
+                elements.append(element)
+            return target.with_changes(slice=elements)
+
+        if isinstance(statement, cst.AugAssign):
+            return statement.with_changes(target=rewritten(statement.target))
+        return statement.with_changes(targets=[t.with_changes(target=rewritten(t.target))
+                                               for t in statement.targets])
 
     def note_pandas_calls(self, code: str, env: dict[str, Value]) -> None:
         """The script's functions that pandas code kept as written calls (`df["c"] =
