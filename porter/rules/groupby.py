@@ -825,6 +825,69 @@ def reduce(call: PandasCall, ctx: RuleContext) -> Value:
                      is_series=single, dtypes=dtypes)
 
 
+# pandas' group quantile is its own (libgroupby.group_quantile), not numpy's: with the group's
+# values sorted and the position q * (count - 1), it takes the value below the position where
+# the position falls on one, else val + (next - val) * frac, frac the position's fraction.
+# numpy's quantile (pandas_quantile) computes next - (next - val) * (1 - frac) from frac 0.5 up,
+# which ends a unit in the last digit away in about one group in ten.
+GROUP_QUANTILE_FUNCTION = "pandas_group_quantile"
+GROUP_QUANTILE_DEFINITION = '''\
+def pandas_group_quantile(column, q):
+    """The q quantile of a group's values as pandas' groupby().quantile(q) computes it: with
+    the values sorted, missing ones left out, and the position q * (count - 1), the value
+    below the position where it falls on one, else val + (next - val) * frac (frac the
+    position's fraction), to the last binary digit. numpy's quantile, which Series.quantile
+    uses, interpolates from the value above past frac 0.5 and can end a digit away; Polars'
+    linear quantile too. A group without values: missing (NaN in pandas)."""
+    count = column.count()
+    position = (count.cast(pl.Float64) - 1) * q
+    frac = position - position.floor()
+    below = column.drop_nulls().quantile(q, "lower")
+    above = column.drop_nulls().quantile(q, "higher")
+    return pl.when(frac == 0).then(below).otherwise(below + (above - below) * frac)
+'''
+
+
+@rule("groupby.quantile")
+def group_quantile(call: PandasCall, ctx: RuleContext) -> Value:
+    """GroupBy.quantile(q) -> pandas_group_quantile(pl.col(c), q) in LazyGroupBy.agg.
+
+    Handles: one q (a number), linear interpolation as pandas' group quantile computes it to
+    the last digit (val + (next - val) * frac, not numpy's formula); missing values skipped, a
+    group without values missing; keys sorted, as_index, sort, dropna as the other aggregations.
+    Caveats: a list of q, other interpolations, numeric_only and columns not known to be
+    numbers are TODOs.
+    """
+    grouped = grouped_of(call)
+    ctx.reject_unknown(call, "q", "interpolation", "numeric_only", positional=1)
+    q = call.const("q", 0, 0.5)
+    if not isinstance(q, (int, float)) or isinstance(q, bool):
+        raise Unsupported("q that is not one literal number (several quantiles give a "
+                          "MultiIndex in pandas)")
+    if not 0 <= q <= 1:
+        raise Unsupported("q outside [0, 1] (pandas raises)")
+    if call.const("interpolation", None, "linear") != "linear":
+        raise Unsupported("interpolation other than 'linear'")
+    if call.const("numeric_only", None, False) is not False:
+        raise Unsupported("numeric_only=True needs the column types")
+    columns = target_columns(grouped, ctx)
+    if columns is None:
+        raise Unsupported("the columns to aggregate are not known (run with --data): pandas "
+                          "raises on text columns")
+    for name in columns:
+        dtype = grouped.frame.dtype(name)
+        if dtype is None:
+            ctx.lower(f"the type of `{name}` is not known: a quantile of dates or times in "
+                      "pandas is a date or time, which Polars' may not follow", 0.95)
+        elif dtype not in ("int", "float"):
+            raise Unsupported(f"the group quantile of a {dtype} column")
+    exprs = [emit.call(GROUP_QUANTILE_FUNCTION, emit.col(name), q).method("alias", name)
+             for name in columns]
+    single = grouped.single and len(columns) == 1
+    return aggregate(grouped, exprs, columns, ctx, series_name=columns[0] if single else None,
+                     is_series=single, dtypes=["float"] * len(columns))
+
+
 @rule("groupby.agg", "groupby.aggregate")
 def agg(call: PandasCall, ctx: RuleContext) -> Value:
     """GroupBy.agg -> LazyGroupBy.agg: g.agg(total=("kg", "sum")), g.agg({"kg": "sum"}),
