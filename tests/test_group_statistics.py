@@ -38,11 +38,7 @@ df = pd.DataFrame({
 })
 """
 
-EMPTY = """\
-import pandas as pd
-df = pd.DataFrame({"shop": pd.Series([], dtype=str), "qty": pd.Series([], dtype=float),
-                   "n": pd.Series([], dtype="int64")})
-"""
+EMPTY = FRAME + 'df = df[df["n"] > 100]\n'
 
 
 def exact(source: str) -> None:
@@ -88,7 +84,7 @@ def test_group_quantile_to_the_last_digit(q: float) -> None:
 
 
 def test_group_quantile_empty_frame() -> None:
-    differential(EMPTY + 'result = df.groupby("shop")["qty"].quantile(0.5)\n')
+    exact(EMPTY + 'result = df.groupby("shop")["qty"].quantile(0.5)\n')
 
 
 @pytest.mark.parametrize("snippet", [
@@ -99,3 +95,53 @@ def test_group_quantile_empty_frame() -> None:
 def test_group_quantile_todo(snippet: str) -> None:
     text = convert(FRAME + snippet + "\n").converted_text
     assert "TODO(porter): groupby.quantile" in text
+
+
+# -- groupby()[c].value_counts --------------------------------------------------------------
+
+VALUE_COUNTS = [
+    'result = df.groupby("shop")["t"].value_counts()',
+    'result = df.groupby("shop")["t"].value_counts(normalize=True)',
+    'result = df.groupby("shop")["t"].value_counts(ascending=True)',
+    'result = df.groupby("shop")["t"].value_counts(sort=False)',
+    'result = df.groupby("shop")["t"].value_counts(dropna=False)',
+    'result = df.groupby("shop")["t"].value_counts(dropna=False, normalize=True)',
+    'result = df.groupby("shop", sort=False)["t"].value_counts()',
+    'result = df.groupby("shop", sort=False)["t"].value_counts(ascending=True, normalize=True)',
+    'result = df.groupby("shop", dropna=False)["t"].value_counts()',
+    'result = df.groupby("shop", as_index=False)["t"].value_counts()',
+    'result = df.groupby("shop", as_index=False)["qty"].value_counts(normalize=True)',
+    'result = df.groupby("shop")["qty"].value_counts().reset_index()',
+    'result = df.groupby("t")["n"].value_counts()',
+    'result = df.groupby(["shop", "t"])["n"].value_counts()',
+    'result = df.groupby("n")["shop"].value_counts(dropna=False)',
+]
+
+
+def counted(source: str) -> None:
+    """differential, checking the rule ported the call and pandas' order of the rows."""
+    result = differential(source)
+    assert "TODO(porter)" not in result.converted_text, result.converted_text
+
+
+@pytest.mark.parametrize("snippet", VALUE_COUNTS)
+def test_group_value_counts(snippet: str) -> None:
+    counted(FRAME + snippet + "\n")
+
+
+@pytest.mark.parametrize("snippet", [
+    'result = df.groupby("shop")["n"].value_counts()',
+    'result = df.groupby("n", sort=False)["shop"].value_counts(ascending=True)',
+    'result = df.groupby("shop")["n"].value_counts(normalize=True)',
+])
+def test_group_value_counts_many_ties(snippet: str) -> None:
+    counted(RANDOM + snippet + "\n")
+
+
+def test_group_value_counts_empty_frame() -> None:
+    counted(EMPTY + 'result = df.groupby("shop")["n"].value_counts()\n')
+
+
+def test_group_value_counts_zeros() -> None:
+    counted(FRAME.replace('"qty": [1.5, np.nan', '"qty": [-0.0, 0.0') +
+            'result = df.groupby("shop")["qty"].value_counts()\n')

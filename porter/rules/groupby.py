@@ -1368,6 +1368,88 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
                   refs=frozenset({result_name}))
 
 
+@rule("groupby.value_counts")
+def group_value_counts(call: PandasCall, ctx: RuleContext) -> Value:
+    """g[c].value_counts() -> group_by(keys + [c], maintain_order=True).agg(pl.len()), sorted.
+
+    Handles: pandas groups the rows by the keys and the column without sorting (combinations
+    in order of first appearance), sorts the counts stably (sort=True; descending unless
+    ascending=True), then, with the groupby's sort=True, sorts stably by the keys alone: within
+    a key the most frequent value first, ties in order of first appearance. A row whose key is
+    missing is left out (the groupby's dropna=True; dropna=False keeps it, sorted last); a
+    missing value is not counted (dropna=True) or counted as a value of its own
+    (dropna=False). normalize=True divides by the key's total ("proportion"). as_index=False
+    gives a frame. 0.0 and -0.0 are one value, shown as the one met first.
+    Caveats: bins, a DataFrameGroupBy (no column selected), Categorical keys or values,
+    columns named "count" ("proportion") or like a key, and a True/False key with its missing
+    values kept are TODOs.
+    """
+    grouped = grouped_of(call)
+    ctx.reject_unknown(call, "normalize", "sort", "ascending", "dropna")
+    if grouped.prepared or not grouped.single or not grouped.selection \
+            or len(grouped.selection) != 1:
+        raise Unsupported("value_counts of a groupby without one column selected")
+    if grouped.hides_column or grouped.pandas is not None:
+        raise Unsupported("value_counts of a groupby by a computed key")
+    value = grouped.selection[0]
+    keys = list(grouped.keys)
+    normalize = call.const("normalize", None, False, kinds=(bool,))
+    sort = call.const("sort", None, True, kinds=(bool,))
+    ascending = call.const("ascending", None, False, kinds=(bool,))
+    dropna = call.const("dropna", None, True, kinds=(bool,))
+    result_name = "proportion" if normalize else "count"
+    if value in keys or result_name in (*keys, value):
+        raise Unsupported(f"a column named like a key or {result_name!r}: pandas gives the "
+                          "index and the counts one name, which no Polars frame can hold")
+    if group_order(grouped) is not None:
+        raise Unsupported("a True/False key with missing values kept (dropna=False): pandas' "
+                          "order of its groups")
+    frame = grouped.frame
+    for name in (*keys, value):
+        dtype = frame.dtype(name)
+        if dtype in ("category", "enum"):
+            raise Unsupported("a Categorical key or value: pandas counts every category")
+        if dtype is None:
+            ctx.lower(f"the type of `{name}` is not known: 0.0 and -0.0 are one value to "
+                      "pandas, shown as the one met first, which a lazy group_by may not "
+                      "follow", 0.95)
+    code = frame.code.method("select", *keys, value)
+    if grouped.dropna:
+        code = code.method("drop_nulls", emit.names_arg(keys))
+    if dropna:
+        code = code.method("drop_nulls", value)
+    floats = [n for n in (*keys, value) if frame.dtype(n) == "float"]
+    if floats:
+        # 0.0 and -0.0 are one key: pandas shows the one it met first
+        code = code.method("with_columns", *(emit.col(n).method("first").method("over", n)
+                                             for n in floats))
+    # pandas: groupby(keys + [value], sort=False).size(), in order of first appearance
+    counts = code.method("group_by", [*keys, value], maintain_order=True).method(
+        "agg", emit.pl("len").method("cast", emit.atom("pl.Int64")).method("alias", "count"))
+    if sort:
+        # sort_values(kind="stable"): ties keep the order of first appearance
+        counts = counts.method("sort", "count", **({} if ascending else {"descending": True}),
+                               maintain_order=True)
+    if grouped.sort:
+        # sort_index(level=keys, sort_remaining=False): stable, a missing key last
+        counts = counts.method("sort", emit.names_arg(keys), maintain_order=True,
+                               **({} if grouped.dropna else {"nulls_last": True}))
+    if normalize:
+        # each count divided by its key's total, value by value as pandas divides
+        counts = counts.method("select", *(emit.col(n) for n in (*keys, value)), emit.call(
+            DIVIDE_FUNCTION, emit.col("count"), emit.col("count").method("sum").method(
+                "over", emit.names_arg(keys))).method("alias", "proportion"))
+    dtypes = tuple((n, frame.dtype(n)) for n in (*keys, value) if frame.dtype(n) is not None)
+    kind = "float" if normalize else "int"
+    if not grouped.as_index:
+        return Frame(counts, columns=(*keys, value, result_name), labels_intact=True,
+                     dtypes=(*dtypes, (result_name, kind)))
+    result = Frame(counts, columns=(*keys, value, result_name), index=(*keys, value),
+                   labels_intact=False, dtypes=dtypes)
+    return Column(emit.col(result_name), frame=result, name=result_name, dtype=kind,
+                  refs=frozenset({result_name}))
+
+
 @rule("frame.value_counts")
 def frame_value_counts(call: PandasCall, ctx: RuleContext) -> Value:
     """df.value_counts(subset) -> the rows' distinct combinations counted, most frequent first.
