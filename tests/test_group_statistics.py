@@ -145,3 +145,36 @@ def test_group_value_counts_empty_frame() -> None:
 def test_group_value_counts_zeros() -> None:
     counted(FRAME.replace('"qty": [1.5, np.nan', '"qty": [-0.0, 0.0') +
             'result = df.groupby("shop")["qty"].value_counts()\n')
+
+
+# -- groupby().ngroup -----------------------------------------------------------------------
+
+NGROUP = [
+    'df["i"] = df.groupby("shop").ngroup(); result = df',
+    'df["i"] = df.groupby("shop").ngroup(ascending=False); result = df',
+    'df["i"] = df.groupby("shop", sort=False).ngroup(); result = df',
+    'df["i"] = df.groupby("shop", sort=False).ngroup(False); result = df',
+    'df["i"] = df.groupby("shop", dropna=False).ngroup(); result = df',
+    'df["i"] = df.groupby("n").ngroup(); result = df',
+    'df["i"] = df.groupby(["shop", "t"]).ngroup(); result = df',
+    'df["i"] = df.groupby(["t", "n"], sort=False).ngroup(); result = df',
+    'df["i"] = df.groupby("qty").ngroup(); result = df',
+    'df["i"] = df.groupby("shop").ngroup(); result = df.dropna(subset=["shop"])',
+    'df["i"] = df.groupby("t").ngroup() * 2; result = df[df["n"] > 2]',
+]
+
+
+@pytest.mark.parametrize("snippet", NGROUP)
+def test_group_ngroup(snippet: str) -> None:
+    counted(FRAME + snippet + "\n")
+
+
+def test_group_ngroup_zeros_and_many_groups() -> None:
+    counted(FRAME.replace('"qty": [1.5, np.nan', '"qty": [-0.0, 0.0') +
+            'df["i"] = df.groupby("qty").ngroup(); result = df\n')
+    counted(RANDOM + 'df["i"] = df.groupby(["shop", "n"]).ngroup(); result = df\n')
+    counted(RANDOM + 'df["i"] = df.groupby(["n", "shop"], sort=False).ngroup(); result = df\n')
+
+
+def test_group_ngroup_empty_frame() -> None:
+    counted(EMPTY + 'df["i"] = df.groupby("shop").ngroup(); result = df\n')

@@ -21,7 +21,7 @@ from porter.rules.io_options import (
 )
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, check_same_rows, column_names, column_of, derive,
-    grouping_code, nullable_mark,
+    derived_column, grouping_code, nullable_mark,
 )
 from porter.translate import handover
 from porter.translate.values import (
@@ -1940,6 +1940,54 @@ class ExtremeLabels(Column):
     keys: tuple[str, ...] = field(kw_only=True)
     column: str = field(kw_only=True)
     how: str = field(kw_only=True)  # "min" or "max"
+
+
+@rule("groupby.ngroup")
+def ngroup(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.groupby(keys).ngroup() -> each row's group number: pl.col(k).rank("dense") - 1 in the
+    keys' sorted order (sort=False: in order of first appearance, replace_strict).
+
+    Handles: numbers from 0 in the order pandas iterates the groups (keys sorted, or in order
+    of first appearance with sort=False), ascending=False numbers from the last; a row whose
+    key is missing gets no number (dropna=True: NaN in pandas, whose column is then float,
+    marked as the other group windows mark it), or with dropna=False one key's missing value
+    is the last group (sort=True). Several keys: their combinations ranked as one struct.
+    Caveats: dropna=False with several keys, or with sort=False, and Categorical keys are TODOs.
+    """
+    from porter.rules.windows import _key_missing_float, _keys_present  # windows imports us
+
+    grouped = grouped_of(call)
+    ctx.reject_unknown(call, "ascending", positional=1)
+    ascending = call.const("ascending", 0, True, kinds=(bool,))
+    if grouped.prepared or grouped.pandas is not None:
+        raise Unsupported("ngroup of a groupby by a computed key")
+    keys = list(grouped.keys)
+    if any(grouped.frame.dtype(k) in ("category", "enum") for k in keys):
+        raise Unsupported("a Categorical key: pandas numbers the groups in the categories' order")
+    if not grouped.dropna and (len(keys) > 1 or not grouped.sort):
+        raise Unsupported("dropna=False with several keys or sort=False: where pandas puts "
+                          "the missing key's group")
+    key = emit.col(keys[0]) if len(keys) == 1 else emit.pl("struct", *keys)
+    if grouped.sort:
+        # the keys' sorted order (0.0 and -0.0 one key, as in pandas); a missing key no rank
+        present = key if len(keys) == 1 or not grouped.dropna else \
+            emit.when(_keys_present(grouped), key)
+        number = emit.binop(present.method("rank", "dense").method(
+            "cast", emit.atom("pl.Int64")), "-", 1)
+        if not grouped.dropna:  # the missing key's group comes last
+            number = number.method("fill_null", emit.col(keys[0]).method("drop_nulls").method(
+                "n_unique").method("cast", emit.atom("pl.Int64")))
+    else:
+        # the distinct keys in order of first appearance, numbered
+        source = key if len(keys) == 1 else emit.when(_keys_present(grouped), key)
+        first = source.method("drop_nulls").method("unique", maintain_order=True)
+        number = source.method("replace_strict", first, emit.pl(
+            "int_range", first.method("len"), dtype=emit.atom("pl.Int64")), default=None)
+    if not ascending:
+        number = emit.binop(number.method("max"), "-", number)
+    base = column_of(grouped.frame, keys[0])
+    result = derived_column(base, number, dtype="int", name=None)
+    return _key_missing_float(grouped, result, NOT_NULLABLE)
 
 
 @rule("groupby.idxmin", "groupby.idxmax")
