@@ -178,3 +178,39 @@ def test_group_ngroup_zeros_and_many_groups() -> None:
 
 def test_group_ngroup_empty_frame() -> None:
     counted(EMPTY + 'df["i"] = df.groupby("shop").ngroup(); result = df\n')
+
+
+# -- groupby().skew -------------------------------------------------------------------------
+
+SKEW = [
+    'result = df.groupby("shop")["qty"].skew()',
+    'result = df.groupby("shop")["n"].skew()',
+    'result = df.groupby("shop", as_index=False)[["qty", "n"]].skew()',
+    'result = df.groupby("shop", dropna=False)["qty"].skew().reset_index()',
+    'result = df.groupby("shop", sort=False)["qty"].skew()',
+    'result = df.groupby(["shop", "t"])["qty"].skew()',
+    'result = df.groupby("t")["n"].skew()',
+]
+
+
+@pytest.mark.parametrize("snippet", SKEW)
+def test_group_skew(snippet: str) -> None:
+    exact(FRAME + snippet + "\n")
+
+
+def test_group_skew_to_the_last_digit() -> None:
+    # Polars' skew(bias=False) ends a few units in the last digits away in most groups
+    exact(RANDOM + 'result = df.groupby("shop")[["qty", "n"]].skew()\n')
+    exact(RANDOM + 'result = df.groupby(["shop", "n"])["qty"].skew()\n')
+
+
+def test_group_skew_equal_values_and_empty_frame() -> None:
+    # all values equal: 0 / 0, NaN in pandas 3.1
+    exact(FRAME.replace('"qty": [1.5, np.nan, 3.0, 1.5, 5.25', '"qty": [0.1, np.nan, 3.0, 0.1, 0.1') +
+          'df.loc[df["shop"] == "b", "qty"] = 0.1\nresult = df.groupby("shop")["qty"].skew()\n')
+    exact(EMPTY + 'result = df.groupby("shop")["qty"].skew()\n')
+
+
+def test_group_skew_todo() -> None:
+    text = convert(FRAME + 'result = df.groupby("shop")["qty"].skew(skipna=False)\n').converted_text
+    assert "TODO(porter): groupby.skew" in text

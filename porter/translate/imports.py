@@ -20,6 +20,7 @@ from porter.rules.selection import (
 )
 from porter.rules.groupby import (
     GROUP_MEAN_DEFINITION, GROUP_MEAN_FUNCTION, GROUP_QUANTILE_DEFINITION, GROUP_QUANTILE_FUNCTION,
+    GROUP_SKEW_DEFINITION, GROUP_SKEW_FUNCTION,
     GROUP_SUM_DEFINITION, GROUP_SUM_FUNCTION,
     GROUP_SUM_OVER_DEFINITION, GROUP_SUM_OVER_FUNCTION,
     GROUP_SUMS_DEFINITION, GROUP_SUMS_FUNCTION,
@@ -142,6 +143,7 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (GROUP_SUMS_FUNCTION, GROUP_SUMS_DEFINITION),
                                  (GROUP_MEAN_FUNCTION, GROUP_MEAN_DEFINITION),
                                  (GROUP_QUANTILE_FUNCTION, GROUP_QUANTILE_DEFINITION),
+                                 (GROUP_SKEW_FUNCTION, GROUP_SKEW_DEFINITION),
                                  (MEAN_FUNCTION, MEAN_DEFINITION),
                                  (REDUCE_FUNCTION, REDUCE_DEFINITION),
                                  (TEXT_VALUES_FUNCTION, TEXT_VALUES_DEFINITION),
