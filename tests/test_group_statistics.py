@@ -214,3 +214,22 @@ def test_group_skew_equal_values_and_empty_frame() -> None:
 def test_group_skew_todo() -> None:
     text = convert(FRAME + 'result = df.groupby("shop")["qty"].skew(skipna=False)\n').converted_text
     assert "TODO(porter): groupby.skew" in text
+
+
+# -- value_counts(bins=...) -----------------------------------------------------------------
+
+@pytest.mark.parametrize("snippet", [
+    'result = df["qty"].value_counts(bins=3)',
+    'result = df["n"].value_counts(bins=[0, 2, 9], normalize=True)',
+    'result = df.groupby("shop")["n"].value_counts(bins=[0, 4, 9])',
+])
+def test_value_counts_bins_todo_says_why(snippet: str) -> None:
+    # Interval labels computed from the data and rounded for display: a TODO with the reason,
+    # the call kept on pandas and giving pandas' result
+    result = differential(FRAME + snippet + "\n")
+    assert "value_counts: bins: pandas counts pd.cut" in result.converted_text
+
+
+def test_value_counts_bins_none_is_no_bins() -> None:
+    counted(FRAME + 'result = df["t"].value_counts(bins=None)\n')
+    counted(FRAME + 'result = df.groupby("shop")["t"].value_counts(bins=None)\n')

@@ -1376,6 +1376,19 @@ def _nan_when_empty(column: Column, how: str, expr: Code, ctx: RuleContext) -> C
     return expr
 
 
+def _reject_bins(call: PandasCall) -> None:
+    """value_counts(bins=...): a TODO saying why (bins=None is no bins)."""
+    bins = call.kwargs.get("bins")
+    if bins is not None and not (isinstance(bins, Opaque) and bins.is_const and bins.const is None):
+        raise Unsupported(
+            "bins: pandas counts pd.cut(values, bins, include_lowest=True) and labels the "
+            "counts with Interval values, every bin listed (empty ones as 0): with a number of "
+            "bins the edges come from the data (min and max, widened by 0.1%) and the labels "
+            "round them for display ((0.0891, 3.4]), which porter would have to reproduce as "
+            "text; Polars has no Interval type for the index (pd.cut's labels=None is a TODO "
+            "too)")
+
+
 @rule("series.value_counts")
 def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
     """s.value_counts() -> counts by value, most frequent first, ties in order of appearance.
@@ -1391,7 +1404,8 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
     """
     column = call.receiver
     assert isinstance(column, Column)
-    ctx.reject_unknown(call, "normalize", "sort", "ascending", "dropna")
+    _reject_bins(call)
+    ctx.reject_unknown(call, "normalize", "sort", "ascending", "dropna", "bins")
     name = column.name
     if name is None:
         raise Unsupported("counting an unnamed Series")
@@ -1454,7 +1468,8 @@ def group_value_counts(call: PandasCall, ctx: RuleContext) -> Value:
     values kept are TODOs.
     """
     grouped = grouped_of(call)
-    ctx.reject_unknown(call, "normalize", "sort", "ascending", "dropna")
+    _reject_bins(call)
+    ctx.reject_unknown(call, "normalize", "sort", "ascending", "dropna", "bins")
     if grouped.prepared or not grouped.single or not grouped.selection \
             or len(grouped.selection) != 1:
         raise Unsupported("value_counts of a groupby without one column selected")
