@@ -12,7 +12,7 @@ import math
 
 import pytest
 
-from support import convert, differential, run, rows
+from support import convert, differential, rows, run, same_text
 
 FRAME = """\
 import numpy as np
@@ -233,3 +233,26 @@ def test_value_counts_bins_todo_says_why(snippet: str) -> None:
 def test_value_counts_bins_none_is_no_bins() -> None:
     counted(FRAME + 'result = df["t"].value_counts(bins=None)\n')
     counted(FRAME + 'result = df.groupby("shop")["t"].value_counts(bins=None)\n')
+
+
+# -- the text written: floats and integers as pandas writes them ----------------------------
+
+SHEDS = {"d.csv": "shed,crates,kg\nnorth,3,1.5\nsouth,4,2.25\n,5,0.5\nnorth,3,4.0\nÉtang,2,\n"
+                  "south,1,0.75\nsouth,1,3.5\nnorth,6,2.0\n"}
+
+
+@pytest.mark.parametrize("line", [
+    'df["no"] = df.groupby("shed").ngroup(); df.to_csv("o.csv", index=False)',
+    'df["no"] = df.groupby("shed", dropna=False).ngroup(ascending=False); df.to_csv("o.csv", index=False)',
+    'df["no"] = df.groupby("crates").ngroup(); print(df["no"].tolist())',
+    'df.groupby("shed")["crates"].quantile(0.3).to_csv("o.csv")',
+    'df.groupby("shed", as_index=False)[["crates", "kg"]].skew().to_csv("o.csv", index=False)',
+    'df.groupby("shed")["crates"].value_counts().to_csv("o.csv")',
+    'df.groupby("shed")["crates"].value_counts(normalize=True).reset_index().to_csv("o.csv", index=False)',
+])
+def test_written_as_pandas_writes(line: str, tmp_path) -> None:
+    same_text(f"""
+        import pandas as pd
+        df = pd.read_csv("d.csv")
+        {line}
+        """, tmp_path, SHEDS)
