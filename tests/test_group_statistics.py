@@ -256,3 +256,9 @@ def test_written_as_pandas_writes(line: str, tmp_path) -> None:
         df = pd.read_csv("d.csv")
         {line}
         """, tmp_path, SHEDS)
+
+
+def test_ngroup_of_a_true_false_key() -> None:
+    frame = FRAME + 'df["big"] = df["n"] > 4\n'
+    counted(frame + 'df["i"] = df.groupby("big").ngroup(); result = df\n')
+    counted(frame + 'df["i"] = df.groupby(["big", "shop"], sort=False).ngroup(); result = df\n')

@@ -2051,6 +2051,9 @@ def ngroup(call: PandasCall, ctx: RuleContext) -> Value:
     if not grouped.dropna and (len(keys) > 1 or not grouped.sort):
         raise Unsupported("dropna=False with several keys or sort=False: where pandas puts "
                           "the missing key's group")
+    if group_order(grouped) is not None:
+        raise Unsupported("a True/False key with missing values kept (dropna=False): pandas' "
+                          "order of its groups")
     key = emit.col(keys[0]) if len(keys) == 1 else emit.pl("struct", *keys)
     if grouped.sort:
         # the keys' sorted order (0.0 and -0.0 one key, as in pandas); a missing key no rank
