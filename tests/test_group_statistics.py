@@ -68,6 +68,10 @@ QUANTILE = [
     'result = df.groupby("shop", sort=False)["qty"].quantile(0.6)',
     'result = df.groupby(["shop", "t"])["qty"].quantile(0.5)',
     'result = df.groupby("t")[["qty", "n"]].quantile(0.1)',
+    'result = df.groupby("shop")[["qty", "n"]].quantile(0.5, interpolation="lower")',
+    'result = df.groupby("shop")[["qty", "n"]].quantile(0.3, interpolation="higher")',
+    'result = df.groupby("shop")[["qty", "n"]].quantile(0.5, interpolation="midpoint")',
+    'result = df.groupby("shop")[["qty", "n"]].quantile(0.5, interpolation="nearest")',
 ]
 
 
@@ -83,13 +87,22 @@ def test_group_quantile_to_the_last_digit(q: float) -> None:
     exact(RANDOM + f'result = df.groupby("shop")["n"].quantile({q})\n')
 
 
+@pytest.mark.parametrize("how", ["lower", "higher", "midpoint", "nearest"])
+@pytest.mark.parametrize("q", [0.125, 0.25, 0.5, 0.625, 0.75, 0.9])
+def test_group_quantile_interpolations(how: str, q: float) -> None:
+    # nearest: a position on .5 goes to the even one (pandas), not always up (Polars)
+    exact(RANDOM + f'result = df.groupby(["shop", "n"])[["qty", "n"]].quantile({q}, interpolation="{how}")\n'
+          .replace('[["qty", "n"]]', '["qty"]'))
+    exact(RANDOM + f'result = df.groupby("shop")["n"].quantile({q}, interpolation="{how}")\n')
+
+
 def test_group_quantile_empty_frame() -> None:
     exact(EMPTY + 'result = df.groupby("shop")["qty"].quantile(0.5)\n')
 
 
 @pytest.mark.parametrize("snippet", [
     'result = df.groupby("shop")["qty"].quantile([0.25, 0.75])',
-    'result = df.groupby("shop")["qty"].quantile(0.5, interpolation="nearest")',
+    'result = df.groupby("shop")["qty"].quantile(0.5, interpolation="cubic")',
     'result = df.groupby("shop")["t"].quantile(0.5)',
 ])
 def test_group_quantile_todo(snippet: str) -> None:
@@ -246,6 +259,8 @@ SHEDS = {"d.csv": "shed,crates,kg\nnorth,3,1.5\nsouth,4,2.25\n,5,0.5\nnorth,3,4.
     'df["no"] = df.groupby("shed", dropna=False).ngroup(ascending=False); df.to_csv("o.csv", index=False)',
     'df["no"] = df.groupby("crates").ngroup(); print(df["no"].tolist())',
     'df.groupby("shed")["crates"].quantile(0.3).to_csv("o.csv")',
+    'df.groupby("shed")[["crates", "kg"]].quantile(0.5, interpolation="nearest").to_csv("o.csv")',
+    'df.groupby("shed")["crates"].quantile(0.6, interpolation="midpoint").to_csv("o.csv")',
     'df.groupby("shed", as_index=False)[["crates", "kg"]].skew().to_csv("o.csv", index=False)',
     'df.groupby("shed")["crates"].value_counts().to_csv("o.csv")',
     'df.groupby("shed")["crates"].value_counts(normalize=True).reset_index().to_csv("o.csv", index=False)',

@@ -832,19 +832,28 @@ def reduce(call: PandasCall, ctx: RuleContext) -> Value:
 # which ends a unit in the last digit away in about one group in ten.
 GROUP_QUANTILE_FUNCTION = "pandas_group_quantile"
 GROUP_QUANTILE_DEFINITION = '''\
-def pandas_group_quantile(column, q):
+def pandas_group_quantile(column, q, interpolation="linear"):
     """The q quantile of a group's values as pandas' groupby().quantile(q) computes it: with
     the values sorted, missing ones left out, and the position q * (count - 1), the value
     below the position where it falls on one, else val + (next - val) * frac (frac the
     position's fraction), to the last binary digit. numpy's quantile, which Series.quantile
     uses, interpolates from the value above past frac 0.5 and can end a digit away; Polars'
-    linear quantile too. A group without values: missing (NaN in pandas)."""
+    linear quantile too. "lower", "higher": val, next; "midpoint": (val + next) / 2;
+    "nearest": the position rounded half to even. A group without values: missing."""
     count = column.count()
     position = (count.cast(pl.Float64) - 1) * q
     frac = position - position.floor()
     below = column.drop_nulls().quantile(q, "lower")
     above = column.drop_nulls().quantile(q, "higher")
-    return pl.when(frac == 0).then(below).otherwise(below + (above - below) * frac)
+    if interpolation == "lower":
+        return below
+    if interpolation == "higher":
+        return above
+    if interpolation == "nearest":
+        odd = position.floor() % 2 == 1
+        return pl.when((frac > 0.5) | ((frac == 0.5) & odd)).then(above).otherwise(below)
+    between = (below + above) / 2 if interpolation == "midpoint" else below + (above - below) * frac
+    return pl.when(frac == 0).then(below).otherwise(between)
 '''
 
 
@@ -855,8 +864,9 @@ def group_quantile(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: one q (a number), linear interpolation as pandas' group quantile computes it to
     the last digit (val + (next - val) * frac, not numpy's formula); missing values skipped, a
     group without values missing; keys sorted, as_index, sort, dropna as the other aggregations.
-    Caveats: a list of q, other interpolations, numeric_only and columns not known to be
-    numbers are TODOs.
+    interpolation lower / higher / midpoint / nearest as pandas' group quantile (nearest: the
+    position rounded half to even); lower / higher / nearest of integers stay integers.
+    Caveats: a list of q, numeric_only and columns not known to be numbers are TODOs.
     """
     grouped = grouped_of(call)
     ctx.reject_unknown(call, "q", "interpolation", "numeric_only", positional=1)
@@ -866,8 +876,9 @@ def group_quantile(call: PandasCall, ctx: RuleContext) -> Value:
                           "MultiIndex in pandas)")
     if not 0 <= q <= 1:
         raise Unsupported("q outside [0, 1] (pandas raises)")
-    if call.const("interpolation", None, "linear") != "linear":
-        raise Unsupported("interpolation other than 'linear'")
+    method = call.const("interpolation", None, "linear")
+    if method not in ("linear", "lower", "higher", "midpoint", "nearest"):
+        raise Unsupported(f"interpolation={method!r}")
     if call.const("numeric_only", None, False) is not False:
         raise Unsupported("numeric_only=True needs the column types")
     columns = target_columns(grouped, ctx)
@@ -881,11 +892,20 @@ def group_quantile(call: PandasCall, ctx: RuleContext) -> Value:
                       "pandas is a date or time, which Polars' may not follow", 0.95)
         elif dtype not in ("int", "float"):
             raise Unsupported(f"the group quantile of a {dtype} column")
-    exprs = [emit.call(GROUP_QUANTILE_FUNCTION, emit.col(name), q).method("alias", name)
-             for name in columns]
+    options = {} if method == "linear" else {"interpolation": method}
+    exprs, dtypes = [], []
+    for name in columns:
+        expr = emit.call(GROUP_QUANTILE_FUNCTION, emit.col(name), q, **options)
+        if method in ("lower", "higher", "nearest") and grouped.frame.dtype(name) == "int":
+            # one of the group's values: pandas keeps int64 (Polars' quantile gives Float64)
+            expr, kind = expr.method("cast", emit.atom("pl.Int64")), "int"
+        else:
+            kind = "float"
+        exprs.append(expr.method("alias", name))
+        dtypes.append(kind)
     single = grouped.single and len(columns) == 1
     return aggregate(grouped, exprs, columns, ctx, series_name=columns[0] if single else None,
-                     is_series=single, dtypes=["float"] * len(columns))
+                     is_series=single, dtypes=dtypes)
 
 
 # pandas 3.1's group skew adds each value to running moments in row order (algos'
