@@ -128,6 +128,8 @@ VALUE_COUNTS = [
     'result = df.groupby("t")["n"].value_counts()',
     'result = df.groupby(["shop", "t"])["n"].value_counts()',
     'result = df.groupby("n")["shop"].value_counts(dropna=False)',
+    'result = df.groupby(["t", "shop"], dropna=False)["n"].value_counts()',
+    'result = df.groupby(["shop", "t"], dropna=False, as_index=False)["qty"].value_counts(dropna=False)',
 ]
 
 
