@@ -21,7 +21,7 @@ from porter.rules.io_options import (
 )
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, check_same_rows, column_names, column_of, derive,
-    grouping_code, nullable_mark,
+    derived_column, grouping_code, nullable_mark,
 )
 from porter.translate import handover
 from porter.translate.values import (
@@ -825,6 +825,158 @@ def reduce(call: PandasCall, ctx: RuleContext) -> Value:
                      is_series=single, dtypes=dtypes)
 
 
+# pandas' group quantile is its own (libgroupby.group_quantile), not numpy's: with the group's
+# values sorted and the position q * (count - 1), it takes the value below the position where
+# the position falls on one, else val + (next - val) * frac, frac the position's fraction.
+# numpy's quantile (pandas_quantile) computes next - (next - val) * (1 - frac) from frac 0.5 up,
+# which ends a unit in the last digit away in about one group in ten.
+GROUP_QUANTILE_FUNCTION = "pandas_group_quantile"
+GROUP_QUANTILE_DEFINITION = '''\
+def pandas_group_quantile(column, q, interpolation="linear"):
+    """The q quantile of a group's values as pandas' groupby().quantile(q) computes it: with
+    the values sorted, missing ones left out, and the position q * (count - 1), the value
+    below the position where it falls on one, else val + (next - val) * frac (frac the
+    position's fraction), to the last binary digit. numpy's quantile, which Series.quantile
+    uses, interpolates from the value above past frac 0.5 and can end a digit away; Polars'
+    linear quantile too. "lower", "higher": val, next; "midpoint": (val + next) / 2;
+    "nearest": the position rounded half to even. A group without values: missing."""
+    count = column.count()
+    position = (count.cast(pl.Float64) - 1) * q
+    frac = position - position.floor()
+    below = column.drop_nulls().quantile(q, "lower")
+    above = column.drop_nulls().quantile(q, "higher")
+    if interpolation == "lower":
+        return below
+    if interpolation == "higher":
+        return above
+    if interpolation == "nearest":
+        odd = position.floor() % 2 == 1
+        return pl.when((frac > 0.5) | ((frac == 0.5) & odd)).then(above).otherwise(below)
+    between = (below + above) / 2 if interpolation == "midpoint" else below + (above - below) * frac
+    return pl.when(frac == 0).then(below).otherwise(between)
+'''
+
+
+@rule("groupby.quantile")
+def group_quantile(call: PandasCall, ctx: RuleContext) -> Value:
+    """GroupBy.quantile(q) -> pandas_group_quantile(pl.col(c), q) in LazyGroupBy.agg.
+
+    Handles: one q (a number), linear interpolation as pandas' group quantile computes it to
+    the last digit (val + (next - val) * frac, not numpy's formula); missing values skipped, a
+    group without values missing; keys sorted, as_index, sort, dropna as the other aggregations.
+    interpolation lower / higher / midpoint / nearest as pandas' group quantile (nearest: the
+    position rounded half to even); lower / higher / nearest of integers stay integers.
+    Caveats: a list of q, numeric_only and columns not known to be numbers are TODOs.
+    """
+    grouped = grouped_of(call)
+    ctx.reject_unknown(call, "q", "interpolation", "numeric_only", positional=1)
+    q = call.const("q", 0, 0.5)
+    if not isinstance(q, (int, float)) or isinstance(q, bool):
+        raise Unsupported("q that is not one literal number (several quantiles give a "
+                          "MultiIndex in pandas)")
+    if not 0 <= q <= 1:
+        raise Unsupported("q outside [0, 1] (pandas raises)")
+    method = call.const("interpolation", None, "linear")
+    if method not in ("linear", "lower", "higher", "midpoint", "nearest"):
+        raise Unsupported(f"interpolation={method!r}")
+    if call.const("numeric_only", None, False) is not False:
+        raise Unsupported("numeric_only=True needs the column types")
+    columns = target_columns(grouped, ctx)
+    if columns is None:
+        raise Unsupported("the columns to aggregate are not known (run with --data): pandas "
+                          "raises on text columns")
+    for name in columns:
+        dtype = grouped.frame.dtype(name)
+        if dtype is None:
+            ctx.lower(f"the type of `{name}` is not known: a quantile of dates or times in "
+                      "pandas is a date or time, which Polars' may not follow", 0.95)
+        elif dtype not in ("int", "float"):
+            raise Unsupported(f"the group quantile of a {dtype} column")
+    options = {} if method == "linear" else {"interpolation": method}
+    exprs, dtypes = [], []
+    for name in columns:
+        expr = emit.call(GROUP_QUANTILE_FUNCTION, emit.col(name), q, **options)
+        if method in ("lower", "higher", "nearest") and grouped.frame.dtype(name) == "int":
+            # one of the group's values: pandas keeps int64 (Polars' quantile gives Float64)
+            expr, kind = expr.method("cast", emit.atom("pl.Int64")), "int"
+        else:
+            kind = "float"
+        exprs.append(expr.method("alias", name))
+        dtypes.append(kind)
+    single = grouped.single and len(columns) == 1
+    return aggregate(grouped, exprs, columns, ctx, series_name=columns[0] if single else None,
+                     is_series=single, dtypes=dtypes)
+
+
+# pandas 3.1's group skew adds each value to running moments in row order (algos'
+# moments_add_value) and corrects the bias at the end (calc_skew): fewer than 3 values, or
+# values all equal (0 / 0), give NaN. Polars' skew(bias=False) sums powers of the deviations
+# instead and ends a few units in the last digits away in most groups, so each group's values
+# go through the same steps in Python (about 0.5 s per 1,000,000 values).
+GROUP_SKEW_FUNCTION = "pandas_group_skew"
+GROUP_SKEW_DEFINITION = '''\
+def pandas_group_skew(values):
+    """A group's skew as pandas' groupby().skew() computes it, to the last digit: each value
+    that is not missing added in row order to the running mean and second and third central
+    moments, then m3 / (m2 * sqrt(m2)) * n * sqrt(n - 1) / (n - 2); fewer than 3 values or
+    values all equal give NaN. Polars' skew(bias=False) computes it another way, a few units
+    in the last digits away."""
+    import numpy as np
+
+    count, mean, m2, m3 = 0, 0.0, 0.0, 0.0
+    for value in values.to_list():
+        if value is None or value != value:
+            continue
+        delta = value - mean
+        count += 1
+        n = float(count)
+        delta_n = delta / n
+        term1 = delta * delta_n * (n - 1.0)
+        m3 += delta_n * (term1 * (n - 2.0) - 3.0 * m2)
+        m2 += term1
+        mean += delta_n
+    if count < 3:
+        return float("nan")
+    with np.errstate(all="ignore"):  # 0 / 0 where the values are all equal: NaN, as pandas
+        m2, m3, n = np.float64(m2), np.float64(m3), np.float64(count)
+        return float((m3 / (m2 * np.sqrt(m2))) * ((n * np.sqrt(n - 1.0)) / (n - 2.0)))
+'''
+
+
+@rule("groupby.skew")
+def group_skew(call: PandasCall, ctx: RuleContext) -> Value:
+    """GroupBy.skew() -> pandas_group_skew on each group's values in LazyGroupBy.agg.
+
+    Handles: the bias-corrected skew as pandas 3.1 computes it to the last digit (running
+    moments in row order, pandas_group_skew); missing values skipped; fewer than 3 values or
+    all values equal give NaN; keys sorted, as_index, sort, dropna as the other aggregations.
+    Caveats: skipna=False, numeric_only and columns not known to be numbers are TODOs.
+    """
+    grouped = grouped_of(call)
+    ctx.reject_unknown(call, "skipna", "numeric_only")
+    if call.const("skipna", None, True) is not True:
+        raise Unsupported("skipna=False")
+    if call.const("numeric_only", None, False) is not False:
+        raise Unsupported("numeric_only=True needs the column types")
+    columns = target_columns(grouped, ctx)
+    if columns is None:
+        raise Unsupported("the columns to aggregate are not known (run with --data): pandas "
+                          "raises on text columns")
+    for name in columns:
+        dtype = grouped.frame.dtype(name)
+        if dtype is None:
+            ctx.lower(f"the type of `{name}` is not known: a column of True/False or dates "
+                      "may not follow pandas", 0.95)
+        elif dtype not in ("int", "float"):
+            raise Unsupported(f"the group skew of a {dtype} column")
+    exprs = [emit.col(name).method("cast", emit.atom("pl.Float64")).method(
+        "map_batches", emit.atom(GROUP_SKEW_FUNCTION), return_dtype=emit.atom("pl.Float64"),
+        returns_scalar=True).method("alias", name) for name in columns]
+    single = grouped.single and len(columns) == 1
+    return aggregate(grouped, exprs, columns, ctx, series_name=columns[0] if single else None,
+                     is_series=single, dtypes=["float"] * len(columns))
+
+
 @rule("groupby.agg", "groupby.aggregate")
 def agg(call: PandasCall, ctx: RuleContext) -> Value:
     """GroupBy.agg -> LazyGroupBy.agg: g.agg(total=("kg", "sum")), g.agg({"kg": "sum"}),
@@ -1244,6 +1396,19 @@ def _nan_when_empty(column: Column, how: str, expr: Code, ctx: RuleContext) -> C
     return expr
 
 
+def _reject_bins(call: PandasCall) -> None:
+    """value_counts(bins=...): a TODO saying why (bins=None is no bins)."""
+    bins = call.kwargs.get("bins")
+    if bins is not None and not (isinstance(bins, Opaque) and bins.is_const and bins.const is None):
+        raise Unsupported(
+            "bins: pandas counts pd.cut(values, bins, include_lowest=True) and labels the "
+            "counts with Interval values, every bin listed (empty ones as 0): with a number of "
+            "bins the edges come from the data (min and max, widened by 0.1%) and the labels "
+            "round them for display ((0.0891, 3.4]), which porter would have to reproduce as "
+            "text; Polars has no Interval type for the index (pd.cut's labels=None is a TODO "
+            "too)")
+
+
 @rule("series.value_counts")
 def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
     """s.value_counts() -> counts by value, most frequent first, ties in order of appearance.
@@ -1259,7 +1424,8 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
     """
     column = call.receiver
     assert isinstance(column, Column)
-    ctx.reject_unknown(call, "normalize", "sort", "ascending", "dropna")
+    _reject_bins(call)
+    ctx.reject_unknown(call, "normalize", "sort", "ascending", "dropna", "bins")
     name = column.name
     if name is None:
         raise Unsupported("counting an unnamed Series")
@@ -1302,6 +1468,89 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
     result = Frame(counts, columns=(name, result_name), index=(name,), labels_intact=False,
                    dtypes=((name, column.dtype),) if column.dtype is not None else ())
     return Column(emit.col(result_name), frame=result, name=result_name, dtype="int",
+                  refs=frozenset({result_name}))
+
+
+@rule("groupby.value_counts")
+def group_value_counts(call: PandasCall, ctx: RuleContext) -> Value:
+    """g[c].value_counts() -> group_by(keys + [c], maintain_order=True).agg(pl.len()), sorted.
+
+    Handles: pandas groups the rows by the keys and the column without sorting (combinations
+    in order of first appearance), sorts the counts stably (sort=True; descending unless
+    ascending=True), then, with the groupby's sort=True, sorts stably by the keys alone: within
+    a key the most frequent value first, ties in order of first appearance. A row whose key is
+    missing is left out (the groupby's dropna=True; dropna=False keeps it, sorted last); a
+    missing value is not counted (dropna=True) or counted as a value of its own
+    (dropna=False). normalize=True divides by the key's total ("proportion"). as_index=False
+    gives a frame. 0.0 and -0.0 are one value, shown as the one met first.
+    Caveats: bins, a DataFrameGroupBy (no column selected), Categorical keys or values,
+    columns named "count" ("proportion") or like a key, and a True/False key with its missing
+    values kept are TODOs.
+    """
+    grouped = grouped_of(call)
+    _reject_bins(call)
+    ctx.reject_unknown(call, "normalize", "sort", "ascending", "dropna", "bins")
+    if grouped.prepared or not grouped.single or not grouped.selection \
+            or len(grouped.selection) != 1:
+        raise Unsupported("value_counts of a groupby without one column selected")
+    if grouped.hides_column or grouped.pandas is not None:
+        raise Unsupported("value_counts of a groupby by a computed key")
+    value = grouped.selection[0]
+    keys = list(grouped.keys)
+    normalize = call.const("normalize", None, False, kinds=(bool,))
+    sort = call.const("sort", None, True, kinds=(bool,))
+    ascending = call.const("ascending", None, False, kinds=(bool,))
+    dropna = call.const("dropna", None, True, kinds=(bool,))
+    result_name = "proportion" if normalize else "count"
+    if value in keys or result_name in (*keys, value):
+        raise Unsupported(f"a column named like a key or {result_name!r}: pandas gives the "
+                          "index and the counts one name, which no Polars frame can hold")
+    if group_order(grouped) is not None:
+        raise Unsupported("a True/False key with missing values kept (dropna=False): pandas' "
+                          "order of its groups")
+    frame = grouped.frame
+    for name in (*keys, value):
+        dtype = frame.dtype(name)
+        if dtype in ("category", "enum"):
+            raise Unsupported("a Categorical key or value: pandas counts every category")
+        if dtype is None:
+            ctx.lower(f"the type of `{name}` is not known: 0.0 and -0.0 are one value to "
+                      "pandas, shown as the one met first, which a lazy group_by may not "
+                      "follow", 0.95)
+    code = frame.code.method("select", *keys, value)
+    if grouped.dropna:
+        code = code.method("drop_nulls", emit.names_arg(keys))
+    if dropna:
+        code = code.method("drop_nulls", value)
+    floats = [n for n in (*keys, value) if frame.dtype(n) == "float"]
+    if floats:
+        # 0.0 and -0.0 are one key: pandas shows the one it met first
+        code = code.method("with_columns", *(emit.col(n).method("first").method("over", n)
+                                             for n in floats))
+    # pandas: groupby(keys + [value], sort=False).size(), in order of first appearance
+    counts = code.method("group_by", [*keys, value], maintain_order=True).method(
+        "agg", emit.pl("len").method("cast", emit.atom("pl.Int64")).method("alias", "count"))
+    if sort:
+        # sort_values(kind="stable"): ties keep the order of first appearance
+        counts = counts.method("sort", "count", **({} if ascending else {"descending": True}),
+                               maintain_order=True)
+    if grouped.sort:
+        # sort_index(level=keys, sort_remaining=False): stable, a missing key last
+        counts = counts.method("sort", emit.names_arg(keys), maintain_order=True,
+                               **({} if grouped.dropna else {"nulls_last": True}))
+    if normalize:
+        # each count divided by its key's total, value by value as pandas divides
+        counts = counts.method("select", *(emit.col(n) for n in (*keys, value)), emit.call(
+            DIVIDE_FUNCTION, emit.col("count"), emit.col("count").method("sum").method(
+                "over", emit.names_arg(keys))).method("alias", "proportion"))
+    dtypes = tuple((n, frame.dtype(n)) for n in (*keys, value) if frame.dtype(n) is not None)
+    kind = "float" if normalize else "int"
+    if not grouped.as_index:
+        return Frame(counts, columns=(*keys, value, result_name), labels_intact=True,
+                     dtypes=(*dtypes, (result_name, kind)))
+    result = Frame(counts, columns=(*keys, value, result_name), index=(*keys, value),
+                   labels_intact=False, dtypes=dtypes)
+    return Column(emit.col(result_name), frame=result, name=result_name, dtype=kind,
                   refs=frozenset({result_name}))
 
 
@@ -1805,6 +2054,57 @@ class ExtremeLabels(Column):
     keys: tuple[str, ...] = field(kw_only=True)
     column: str = field(kw_only=True)
     how: str = field(kw_only=True)  # "min" or "max"
+
+
+@rule("groupby.ngroup")
+def ngroup(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.groupby(keys).ngroup() -> each row's group number: pl.col(k).rank("dense") - 1 in the
+    keys' sorted order (sort=False: in order of first appearance, replace_strict).
+
+    Handles: numbers from 0 in the order pandas iterates the groups (keys sorted, or in order
+    of first appearance with sort=False), ascending=False numbers from the last; a row whose
+    key is missing gets no number (dropna=True: NaN in pandas, whose column is then float,
+    marked as the other group windows mark it), or with dropna=False one key's missing value
+    is the last group (sort=True). Several keys: their combinations ranked as one struct.
+    Caveats: dropna=False with several keys, or with sort=False, and Categorical keys are TODOs.
+    """
+    from porter.rules.windows import _key_missing_float, _keys_present  # windows imports us
+
+    grouped = grouped_of(call)
+    ctx.reject_unknown(call, "ascending", positional=1)
+    ascending = call.const("ascending", 0, True, kinds=(bool,))
+    if grouped.prepared or grouped.pandas is not None:
+        raise Unsupported("ngroup of a groupby by a computed key")
+    keys = list(grouped.keys)
+    if any(grouped.frame.dtype(k) in ("category", "enum") for k in keys):
+        raise Unsupported("a Categorical key: pandas numbers the groups in the categories' order")
+    if not grouped.dropna and (len(keys) > 1 or not grouped.sort):
+        raise Unsupported("dropna=False with several keys or sort=False: where pandas puts "
+                          "the missing key's group")
+    if group_order(grouped) is not None:
+        raise Unsupported("a True/False key with missing values kept (dropna=False): pandas' "
+                          "order of its groups")
+    key = emit.col(keys[0]) if len(keys) == 1 else emit.pl("struct", *keys)
+    if grouped.sort:
+        # the keys' sorted order (0.0 and -0.0 one key, as in pandas); a missing key no rank
+        present = key if len(keys) == 1 or not grouped.dropna else \
+            emit.when(_keys_present(grouped), key)
+        number = emit.binop(present.method("rank", "dense").method(
+            "cast", emit.atom("pl.Int64")), "-", 1)
+        if not grouped.dropna:  # the missing key's group comes last
+            number = number.method("fill_null", emit.col(keys[0]).method("drop_nulls").method(
+                "n_unique").method("cast", emit.atom("pl.Int64")))
+    else:
+        # the distinct keys in order of first appearance, numbered
+        source = key if len(keys) == 1 else emit.when(_keys_present(grouped), key)
+        first = source.method("drop_nulls").method("unique", maintain_order=True)
+        number = source.method("replace_strict", first, emit.pl(
+            "int_range", first.method("len"), dtype=emit.atom("pl.Int64")), default=None)
+    if not ascending:
+        number = emit.binop(number.method("max"), "-", number)
+    base = column_of(grouped.frame, keys[0])
+    result = derived_column(base, number, dtype="int", name=None)
+    return _key_missing_float(grouped, result, NOT_NULLABLE)
 
 
 @rule("groupby.idxmin", "groupby.idxmax")
