@@ -112,13 +112,13 @@ FISH = {"d.csv": "tank,fish,n\nT1,3,1\nT2,-1,5\nT1,4,2\nT2,2,3\n"}
 def test_int_column_kept_int(line, tmp_path):
     """An int column shifted in with a whole fill (2.0), interpolated without a missing value,
     or given a float branch no group takes stays int64 in pandas (written 2, not 2.0); a
-    fraction (0.5) makes it float64. The frame then goes to pandas (ngroup), which keeps the
-    column's type as porter states it."""
+    fraction (0.5) makes it float64. The frame then goes to pandas (a group's running median,
+    which porter does not port), which keeps the column's type as porter states it."""
     same_text(f"""
         import pandas as pd
         df = pd.read_csv("d.csv")
         {line}
-        df["grp_no"] = df.groupby("tank").ngroup()
+        df["run_med"] = df.groupby("tank")["n"].expanding().median().reset_index(level=0, drop=True)
         df.to_csv("o.csv", index=False)
         print(df["prev"].tolist())
         """, tmp_path, FISH)
