@@ -112,3 +112,15 @@ def test_labels_read_in_the_keys_of_a_statement_kept_on_pandas() -> None:
     # handed to pandas in the key with them as its index (it was left a LazyFrame: a crash)
     differential(HEAD + 'pos = df[df["cars"] > 5]\ndf["heavy"] = False\n'
                  'df.loc[pos.index, "heavy"] = True\nresult = df\n', data_dir=".")
+
+
+def test_pandas_nullable_types_of_a_frame_carrying_labels() -> None:
+    # columns read as pandas' nullable types keep <NA> in tolist() and their dtype when handed
+    # over, on a frame carrying its labels (they came back with nan, as float64 and object)
+    with open("checks.csv", "w", encoding="utf-8") as out:
+        out.write("boat,ok,crew\nOrm,True,3\nSkarv,,\nLunde,False,4\nÖrn,,2\n")
+    differential('import pandas as pd\n'
+                 'df = pd.read_csv("checks.csv", dtype={"ok": "boolean", "crew": "Int64"})\n'
+                 'pos = df[df["boat"] != "Orm"]\nlabels = list(pos.index)\n'
+                 'result = [pos["ok"].tolist(), pos["crew"].tolist(), str(pos["ok"].dtype),\n'
+                 '          pos.set_index("boat")["crew"].to_dict()]\n', data_dir=".")

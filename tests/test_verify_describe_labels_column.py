@@ -37,11 +37,20 @@ def test_other_values_still_differ() -> None:
 
 
 def test_row_numbers_and_an_extra_index_column_still_differ() -> None:
-    # a default RangeIndex is only numbering: an "index" column on the other side is extra
+    # an "index" column on the other side is read as the row labels porter carries (pandas
+    # keeps a RangeIndex after a filter or sort that leaves the rows in a run): labels other
+    # than pandas' differ, the same labels match
     frame = pd.DataFrame({"kg": [1.0, 2.0]})
     converted = pl.DataFrame({"index": ["a", "b"], "kg": [1.0, 2.0]})
-    result = compare(frame, converted)
-    assert result.status == "different" and "extra in converted: index" in result.detail
+    assert compare(frame, converted).status == "different"
+    renumbered = pl.DataFrame({"index": [1, 2], "kg": [1.0, 2.0]})
+    assert compare(frame, renumbered).status == "different"
+    carried = pl.DataFrame({"index": [0, 1], "kg": [1.0, 2.0]})
+    assert compare(frame, carried).status == "same"
+    # a second extra column is still extra
+    extra = pl.DataFrame({"index": [0, 1], "kg": [1.0, 2.0], "g": [1, 2]})
+    result = compare(frame, extra)
+    assert result.status == "different" and "extra in converted: index, g" in result.detail
 
 
 def test_series_with_text_labels() -> None:

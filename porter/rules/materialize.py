@@ -49,7 +49,7 @@ def series_values(call: PandasCall, ctx: RuleContext) -> Value:
     column = call.receiver
     assert isinstance(column, Column)
     ctx.reject_unknown(call)
-    if column.nullable_int and not column.element and not column.frame.index:
+    if column.nullable_int and not column.element:
         ctx.handover = True  # pandas' own values: ints and <NA> ([1, <NA>, 3])
         code = handover.to_pandas(column)
         if call.name == "values":

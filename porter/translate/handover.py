@@ -127,6 +127,18 @@ def int_labels_after(frame: Frame, written: object) -> tuple[str, ...] | None:
     return kept if written in kept else (*kept, written)
 
 
+def _nullable_again(code: Code, column: Column) -> Code:
+    """The pandas Series `code` of `column` in pandas' nullable type where porter knows the
+    column is one: pandas' nullable integers (Polars hands an int column holding a missing
+    value over as float64), and its other nullable types, whose missing value is <NA>."""
+    if column.nullable_int and column.dtype == "int":  # pandas' nullable integers (see Frame)
+        return code.method("astype", column.nullable_int)
+    if (column.nullable_int, column.dtype) in (("boolean", "bool"), ("string", "str"),
+                                               ("Float64", "float"), ("Float32", "float")):
+        return code.method("astype", column.nullable_int)  # its other nullable types: <NA>
+    return code
+
+
 def to_pandas(value: Value) -> Code:
     """The pandas object this value stands for (index restored where porter tracks one; dates,
     missing True/False values and categories as pandas holds them)."""
@@ -197,7 +209,7 @@ def to_pandas(value: Value) -> Code:
             # date keys are datetime.date objects in pandas' index, as pandas grouped them
             made = _as_pandas_made_them(series_frame(value).method("collect").method("to_pandas"),
                                         kinds, (*value.frame.index, name))
-            code = _labels(made, value.frame).index(name)
+            code = _nullable_again(_labels(made, value.frame).index(name), value)
             if renamed is not None:
                 code = code.method("rename", renamed)
         elif value.dtype == "category":  # categories sorted, as astype("category") made them
@@ -214,11 +226,8 @@ def to_pandas(value: Value) -> Code:
                 code = code.method("astype", value.dtype)  # the periods, from their text
             elif value.dtype == "bool" and not value.null_is_false and value.nullable_int != "boolean":
                 code = code.method("fillna", emit.atom('float("nan")'))
-            elif value.nullable_int and value.dtype == "int":  # pandas' nullable integers (see Frame)
-                code = code.method("astype", value.nullable_int)
-            elif (value.nullable_int, value.dtype) in (("boolean", "bool"), ("string", "str"),
-                                                       ("Float64", "float"), ("Float32", "float")):
-                code = code.method("astype", value.nullable_int)  # its other nullable types: <NA>
+            else:
+                code = _nullable_again(code, value)
         # a Series pandas made without a name has none (Polars calls it "0")
         return code.method("rename", None) if value.name is None else code
     if isinstance(value, Grouped) and value.pandas is not None:
