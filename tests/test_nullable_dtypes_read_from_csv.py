@@ -62,6 +62,22 @@ def test_boolean_column_handed_over_to_pandas(tmp_path: Path) -> None:
         """, tmp_path, DATA)
 
 
+def test_nullable_columns_handed_over_without_data(tmp_path: Path) -> None:
+    # without --data porter does not know the columns, but read_csv's dtype= names them: a
+    # frame pandas makes for its labels gets them as "boolean" and "Float64" (they came over
+    # as object and float64: the missing key grouped first, nan in tolist)
+    same_text("""
+        import pandas as pd
+        df = pd.read_csv("d.csv", dtype={"b": "boolean", "f": "Float64"})
+        x = df[df["k"] != "a"]
+        print(list(x.index))
+        t = x.groupby("b", dropna=False)["n"].mean()
+        print(t)
+        print(x["b"].dtype, x["f"].dtype, x["b"].tolist())
+        t.to_csv("t.csv")
+        """, tmp_path, DATA, with_data=False)
+
+
 def test_str_len_of_a_string_column(tmp_path: Path) -> None:
     same_text("""
         import pandas as pd

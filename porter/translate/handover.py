@@ -161,6 +161,16 @@ def to_pandas(value: Value) -> Code:
             # column holding a missing value over as float64; and its other nullable types (a
             # parquet file pandas wrote): <NA>, not None or NaN
             code = code.method("astype", nullable)
+        elif value.columns is None and value.nullable_ints:
+            # the columns are not known (no --data), the marks are (read_csv(dtype={...})):
+            # those of the marked columns the frame has, at run time
+            marks = {c: kind for c, kind in value.nullable_ints
+                     if value.dtype(c) == _NULLABLE_KINDS.get(kind, "int")}
+            if marks:
+                nullable = marks
+                code = code.method("pipe", emit.atom(
+                    f"lambda t: t.astype({{c: k for c, k in {emit.render(marks)}.items() "
+                    "if c in t.columns})"))
         code = _as_pandas_made_them(code, tuple((c, t) for c, t in value.dtypes
                                                 if c not in nullable), value.columns)
         if value.index:
