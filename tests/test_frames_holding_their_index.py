@@ -3,8 +3,8 @@ every step leaves the index where pandas leaves it, checked against pandas (the 
 implementation) on one groupby result, step by step.
 
 pandas computes on the columns and carries the index along: a cast, a selection of columns by
-loc, drop_duplicates and describe never touch it (each of those once took the keys as data
-here). A step pandas refuses (a KeyError) is skipped. The data is an invented ferry line's
+loc, drop_duplicates, describe and replace never touch it (each of those once took the keys or
+the labels as data here). A step pandas refuses (a KeyError) is skipped. The data is an invented ferry line's
 crossing log, read with --data.
 """
 
@@ -14,11 +14,22 @@ import pytest
 
 from support import differential
 
-HEAD = """import pandas as pd
+HEADS = {
+    # a groupby's keys held as the index
+    "grouped": """import pandas as pd
 import numpy as np
 df = pd.read_csv("crossings.csv")
 g = df.groupby("leg").agg(cars=("cars", "sum"), fare=("fare", "mean"), boats=("boat", "nunique"))
-"""
+labels = list(g.index)
+""",
+    # the row labels a filter and a sort left, read later: carried as a column "index"
+    "labelled": """import pandas as pd
+import numpy as np
+df = pd.read_csv("crossings.csv")
+g = df[df["cars"] > 0][["leg", "cars", "fare"]].sort_values("cars", kind="stable")
+labels = list(g.index)
+""",
+}
 
 OPS = [
  'result = g.sort_values("cars")', 'result = g.head(2)', 'result = g[g["cars"] > 5]',
@@ -65,10 +76,11 @@ def crossings(tmp_path, monkeypatch):
     monkeypatch.chdir(tmp_path)
 
 
+@pytest.mark.parametrize("head", list(HEADS))
 @pytest.mark.parametrize("step", OPS)
-def test_each_step_leaves_the_index_as_pandas_does(step: str) -> None:
+def test_each_step_leaves_the_index_as_pandas_does(step: str, head: str) -> None:
     try:
-        exec(HEAD + step, {})
+        exec(HEADS[head] + step, {})
     except Exception:  # noqa: BLE001 - a step pandas refuses is not one to port
         pytest.skip("pandas raises")
-    differential(HEAD + step + "\n", data_dir=".")
+    differential(HEADS[head] + step + "\n", "result", "labels", data_dir=".")

@@ -714,7 +714,8 @@ def frame_replace(call: PandasCall, ctx: RuleContext) -> Value:
     """df.replace(a, b) -> .with_columns(<columns of a's type>.replace(a, b)).
 
     Handles: pandas replaces in every column where the value occurs; porter replaces in the
-    columns whose type can hold it (text values in text columns, numbers in numeric columns).
+    columns whose type can hold it (text values in text columns, numbers in numeric columns);
+    never in the index (a groupby's keys, row labels carried as a column).
     Caveats: NaN replaced with a number is a missing value of every column to pandas: text,
     date and True/False columns become object columns holding the number, which Polars cannot
     mix (a TODO where such columns are known, 0.7 where the types are not known).
@@ -738,7 +739,8 @@ def frame_replace(call: PandasCall, ctx: RuleContext) -> Value:
             ctx.lower("NaN is a missing value of every column to pandas: it also replaces those "
                       "of text, date and True/False columns (making them object), which Polars "
                       "leaves missing", 0.7)
-    selector = emit.atom("pl.selectors.string()" if old == {str} else "pl.selectors.numeric()")
+    selector = _columns_only(
+        emit.atom("pl.selectors.string()" if old == {str} else "pl.selectors.numeric()"), frame)
     if old != {str} and _fractional_replacement(args):
         # pandas makes an integer column holding the value float; Polars would truncate
         selector = selector.method("cast", emit.atom("pl.Float64"))
@@ -746,13 +748,22 @@ def frame_replace(call: PandasCall, ctx: RuleContext) -> Value:
     elif old != {str} and _fractional_keys(args):
         # no integer equals 2.5 in pandas; Polars would cast it to an integer column's type (2)
         # and replace the 2s: the integer columns get only the whole values to replace
-        parts = [_replacement(emit.atom("pl.selectors.float()"), args)]
+        parts = [_replacement(_columns_only(emit.atom("pl.selectors.float()"), frame), args)]
         whole = _whole_keys(args)
         if whole is not None:
-            parts.append(_replacement(emit.atom("pl.selectors.integer()"), whole))
+            parts.append(_replacement(_columns_only(emit.atom("pl.selectors.integer()"), frame),
+                                      whole))
         return derive(frame, frame.code.method("with_columns", *parts), same_rows=True)
     code = frame.code.method("with_columns", _replacement(selector, args))
     return derive(frame, code, same_rows=True)
+
+
+def _columns_only(selector: Code, frame: Frame) -> Code:
+    """`selector` without the columns holding the frame's index (a groupby's keys, row labels
+    carried as a column): pandas replaces in the columns, never in the index."""
+    if not frame.index:
+        return selector
+    return emit.binop(selector, "-", emit.call("pl.selectors.by_name", *frame.index))
 
 
 @rule("series.rank")
