@@ -21,7 +21,7 @@ from porter.rules.io_options import (
 )
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, check_same_rows, column_names, column_of, derive,
-    derived_column, grouping_code, nullable_mark,
+    derived_column, grouping_code, nullable_mark, row_labels_carried, without_index,
 )
 from porter.translate import handover
 from porter.translate.values import (
@@ -857,6 +857,22 @@ def pandas_group_quantile(column, q, interpolation="linear"):
 '''
 
 
+def _numeric_targets(grouped: Grouped, ctx: RuleContext, what: str, unknown: str) -> list[str]:
+    """The columns a group statistic of numbers aggregates: known ones (pandas raises on text),
+    each of them numbers, or of a type not known (the confidence lowered with `unknown`)."""
+    columns = target_columns(grouped, ctx)
+    if columns is None:
+        raise Unsupported("the columns to aggregate are not known (run with --data): pandas "
+                          "raises on text columns")
+    for name in columns:
+        dtype = grouped.frame.dtype(name)
+        if dtype is None:
+            ctx.lower(f"the type of `{name}` is not known: {unknown}", 0.95)
+        elif dtype not in ("int", "float"):
+            raise Unsupported(f"the group {what} of a {dtype} column")
+    return list(columns)
+
+
 @rule("groupby.quantile")
 def group_quantile(call: PandasCall, ctx: RuleContext) -> Value:
     """GroupBy.quantile(q) -> pandas_group_quantile(pl.col(c), q) in LazyGroupBy.agg.
@@ -881,17 +897,8 @@ def group_quantile(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported(f"interpolation={method!r}")
     if call.const("numeric_only", None, False) is not False:
         raise Unsupported("numeric_only=True needs the column types")
-    columns = target_columns(grouped, ctx)
-    if columns is None:
-        raise Unsupported("the columns to aggregate are not known (run with --data): pandas "
-                          "raises on text columns")
-    for name in columns:
-        dtype = grouped.frame.dtype(name)
-        if dtype is None:
-            ctx.lower(f"the type of `{name}` is not known: a quantile of dates or times in "
-                      "pandas is a date or time, which Polars' may not follow", 0.95)
-        elif dtype not in ("int", "float"):
-            raise Unsupported(f"the group quantile of a {dtype} column")
+    columns = _numeric_targets(grouped, ctx, "quantile", "a quantile of dates or times in "
+                               "pandas is a date or time, which Polars' may not follow")
     options = {} if method == "linear" else {"interpolation": method}
     exprs, dtypes = [], []
     for name in columns:
@@ -958,17 +965,8 @@ def group_skew(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("skipna=False")
     if call.const("numeric_only", None, False) is not False:
         raise Unsupported("numeric_only=True needs the column types")
-    columns = target_columns(grouped, ctx)
-    if columns is None:
-        raise Unsupported("the columns to aggregate are not known (run with --data): pandas "
-                          "raises on text columns")
-    for name in columns:
-        dtype = grouped.frame.dtype(name)
-        if dtype is None:
-            ctx.lower(f"the type of `{name}` is not known: a column of True/False or dates "
-                      "may not follow pandas", 0.95)
-        elif dtype not in ("int", "float"):
-            raise Unsupported(f"the group skew of a {dtype} column")
+    columns = _numeric_targets(grouped, ctx, "skew", "a column of True/False or dates may "
+                               "not follow pandas")
     exprs = [emit.col(name).method("cast", emit.atom("pl.Float64")).method(
         "map_batches", emit.atom(GROUP_SKEW_FUNCTION), return_dtype=emit.atom("pl.Float64"),
         returns_scalar=True).method("alias", name) for name in columns]
@@ -1758,10 +1756,8 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
     frame = call.receiver
     assert isinstance(frame, Frame)
     ctx.reject_unknown(call)
-    numeric = emit.atom("pl.selectors.numeric()")
-    if frame.index:
-        # pandas describes the columns, never the index (a groupby's keys, row labels)
-        numeric = emit.binop(numeric, "-", emit.call("pl.selectors.by_name", *frame.index))
+    # pandas describes the columns, never the index (a groupby's keys, row labels)
+    numeric = without_index(emit.atom("pl.selectors.numeric()"), frame)
     as_float = emit.atom("pl.Float64")
     stats: list[tuple[str, Code]] = [
         ("count", numeric.method("count").method("cast", as_float)),
@@ -2036,12 +2032,6 @@ def ngroups(call: PandasCall, ctx: RuleContext) -> Value:
     distinct = emit.col(keys[0]) if len(keys) == 1 else emit.pl("struct", keys)
     code = frame.method("select", distinct.method("n_unique")).method("collect").method("item")
     return Scalar(code, pytype="int")
-
-
-def row_labels_carried(frame: Frame) -> bool:
-    """Whether `frame` holds the row labels a filter or sort left (integers, pandas' unnamed
-    index) in its column "index" (engine.labels_as_column)."""
-    return frame.index == ("index",) and frame.index_unnamed and frame.dtype("index") == "int"
 
 
 @dataclass(frozen=True)

@@ -12,7 +12,7 @@ from porter.rules.elementwise import keys_of_column_type
 from porter.rules import rule
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, column_of, derive, derived_column,
-    values_fixed,
+    values_fixed, without_index,
 )
 from porter.translate.values import Column, Frame, Opaque, Value, fresh_token
 
@@ -739,7 +739,7 @@ def frame_replace(call: PandasCall, ctx: RuleContext) -> Value:
             ctx.lower("NaN is a missing value of every column to pandas: it also replaces those "
                       "of text, date and True/False columns (making them object), which Polars "
                       "leaves missing", 0.7)
-    selector = _columns_only(
+    selector = without_index(
         emit.atom("pl.selectors.string()" if old == {str} else "pl.selectors.numeric()"), frame)
     if old != {str} and _fractional_replacement(args):
         # pandas makes an integer column holding the value float; Polars would truncate
@@ -748,22 +748,14 @@ def frame_replace(call: PandasCall, ctx: RuleContext) -> Value:
     elif old != {str} and _fractional_keys(args):
         # no integer equals 2.5 in pandas; Polars would cast it to an integer column's type (2)
         # and replace the 2s: the integer columns get only the whole values to replace
-        parts = [_replacement(_columns_only(emit.atom("pl.selectors.float()"), frame), args)]
+        parts = [_replacement(without_index(emit.atom("pl.selectors.float()"), frame), args)]
         whole = _whole_keys(args)
         if whole is not None:
-            parts.append(_replacement(_columns_only(emit.atom("pl.selectors.integer()"), frame),
+            parts.append(_replacement(without_index(emit.atom("pl.selectors.integer()"), frame),
                                       whole))
         return derive(frame, frame.code.method("with_columns", *parts), same_rows=True)
     code = frame.code.method("with_columns", _replacement(selector, args))
     return derive(frame, code, same_rows=True)
-
-
-def _columns_only(selector: Code, frame: Frame) -> Code:
-    """`selector` without the columns holding the frame's index (a groupby's keys, row labels
-    carried as a column): pandas replaces in the columns, never in the index."""
-    if not frame.index:
-        return selector
-    return emit.binop(selector, "-", emit.call("pl.selectors.by_name", *frame.index))
 
 
 @rule("series.rank")

@@ -15,7 +15,7 @@ from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, column_names, column_of, derive, nullable_columns,
-    select_columns, values_fixed,
+    row_labels_carried, select_columns, values_fixed,
 )
 from porter.translate.handover import series_frame, to_pandas
 from porter.translate.values import (
@@ -316,7 +316,7 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     frame = frame_of(call)
     rows = call.args[0]
     cols = call.args[1] if len(call.args) > 1 else None
-    from porter.rules.groupby import ExtremeLabels, RowPosition, row_labels_carried, scalar_of
+    from porter.rules.groupby import ExtremeLabels, RowPosition, scalar_of
     if isinstance(rows, RowPosition) and rows.current_in(frame) \
             and isinstance(cols, Opaque) and isinstance(cols.const, str):
         # df.loc[df["kg"].idxmax(), "boat"]: the value on the row the label was read from

@@ -285,6 +285,34 @@ def select_columns(frame: Frame, code: Code, names: Sequence[str], *, same_rows:
     return replace(result, index=tuple(i for i in frame.index if i in names))
 
 
+ROW_LABELS = "index"  # the column carrying the row labels a filter or sort left
+
+
+def with_row_labels(frame: Frame) -> Frame:
+    """`frame`, whose row labels are still 0..n-1, with them as a column "index" (Int64, as
+    pandas' labels) held as pandas' unnamed index: a filter or sort carries each row's label
+    (engine.labels_as_column)."""
+    code = frame.code.method("with_row_index", ROW_LABELS).method(
+        "with_columns", emit.col(ROW_LABELS).method("cast", emit.atom("pl.Int64")))
+    columns = None if frame.columns is None else (ROW_LABELS, *frame.columns)
+    return replace(frame, code=code, columns=columns, index=(ROW_LABELS,), index_unnamed=True,
+                   dtypes=(*frame.dtypes, (ROW_LABELS, "int")))
+
+
+def row_labels_carried(frame: Frame) -> bool:
+    """Whether `frame` holds the row labels a filter or sort left in its column "index"
+    (with_row_labels)."""
+    return frame.index == (ROW_LABELS,) and frame.index_unnamed and frame.dtype(ROW_LABELS) == "int"
+
+
+def without_index(selector: Code, frame: Frame) -> Code:
+    """A column selector without the columns holding the frame's index (a groupby's keys, row
+    labels carried as a column): pandas computes on the columns, never on the index."""
+    if not frame.index:
+        return selector
+    return emit.binop(selector, "-", emit.call("pl.selectors.by_name", *frame.index))
+
+
 def column_of(frame: Frame, name: str, code: Code | None = None) -> Column:
     return Column(
         code if code is not None else emit.col(name),

@@ -29,7 +29,7 @@ from porter.rules.assign import FRAME_STAYS_PANDAS, INTERVAL_MAKERS
 from porter.translate.writes import FileChanges, FreshSchemas, batch_writes, is_sink_text
 from porter.translate.context import (
     PandasCall, Unsupported, expr_in, grouping_code, select_columns, value_dtype,
-    with_column_updates,
+    with_column_updates, with_row_labels,
 )
 from porter.translate.evaluate import Evaluator, Services, parts_current
 from porter.translate.values import (
@@ -1491,10 +1491,7 @@ class _Walker:
         if isinstance(statement, (cst.Assign, cst.AugAssign)) and statement.value is not None:
             # other frames the statement reads are handed over too (`other.pct`), never left
             # as LazyFrames or expressions inside pandas code
-            value = Evaluator(env, self.services).generic(statement.value)
-            if value.code.text != self.services.code_for(statement.value):
-                text = value.code.text if "\n" not in value.code.text else f"({value.code.text})"
-                statement = statement.with_changes(value=cst.parse_expression(text))
+            statement = statement.with_changes(value=self.handed_over_in(statement.value, env))
             # and so are those read by the keys it assigns to (`df.loc[pos.index, "c"] = 1`)
             statement = self.keys_handed_over(statement, env)
         original = self.services.code_for(statement).strip()
@@ -1506,6 +1503,15 @@ class _Walker:
         self.note_handed_over(name, frame)
         return "\n".join([*first, f"{name} = {handover.to_pandas(frame).text}", original]), sites
 
+    def handed_over_in(self, node: cst.BaseExpression, env: dict[str, Value]) -> cst.BaseExpression:
+        """`node` as pandas code, with the frames and Series of porter's it reads handed to
+        pandas (the node itself where it reads none)."""
+        value = Evaluator(env, self.services).generic(node)
+        if value.code.text == self.services.code_for(node):
+            return node
+        text = value.code.text if "\n" not in value.code.text else f"({value.code.text})"
+        return cst.parse_expression(text)
+
     def keys_handed_over(self, statement: cst.Assign | cst.AugAssign,
                          env: dict[str, Value]) -> cst.Assign | cst.AugAssign:
         """`statement` kept on pandas with the keys of the subscripts it assigns to rewritten:
@@ -1513,18 +1519,11 @@ class _Walker:
         def rewritten(target: cst.BaseExpression) -> cst.BaseExpression:
             if not isinstance(target, cst.Subscript):
                 return target
-            elements = []
-            for element in target.slice:
-                if isinstance(element.slice, cst.Index):
-                    node = element.slice.value
-                    value = Evaluator(env, self.services).generic(node)
-                    if value.code.text != self.services.code_for(node):
-                        text = value.code.text if "\n" not in value.code.text \
-                            else f"({value.code.text})"
-                        element = element.with_changes(slice=element.slice.with_changes(
-                            value=cst.parse_expression(text)))
-                elements.append(element)
-            return target.with_changes(slice=elements)
+            return target.with_changes(slice=[
+                element.with_changes(slice=element.slice.with_changes(
+                    value=self.handed_over_in(element.slice.value, env)))
+                if isinstance(element.slice, cst.Index) else element
+                for element in target.slice])
 
         if isinstance(statement, cst.AugAssign):
             return statement.with_changes(target=rewritten(statement.target))
@@ -1635,10 +1634,7 @@ class _Walker:
         if not frame.labels_intact or frame.index or frame.columns is None \
                 or "index" in frame.columns or frame.nullable_ints is None:
             return None
-        code = frame.code.method("with_row_index", "index").method(
-            "with_columns", emit.col("index").method("cast", emit.atom("pl.Int64")))
-        labelled = replace(frame, code=code, columns=("index", *frame.columns), index=("index",),
-                           index_unnamed=True, dtypes=(*frame.dtypes, ("index", "int")))
+        labelled = with_row_labels(frame)
         result = Evaluator({**env, frames[0]: labelled}, self.services).eval(expr)
         if any(site.status == "todo" for site in result.sites):
             return None
