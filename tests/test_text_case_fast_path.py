@@ -1,8 +1,8 @@
 """str.title() and str.upper() against pandas on whole columns, with and without the letters
 that need porter's letter-by-letter fix-ups (pandas is the reference).
 
-pandas_title and pandas_upper compute the slow fix-ups only where the column holds such a
-letter; a column without one takes Polars' own title or upper case. Both kinds of column, and
+pandas_title and pandas_upper compute the slow fix-ups only where a batch of values holds such a
+letter; a batch without one takes Polars' own title or upper case. Both kinds of column, and
 columns where a few rows hold one, must read as pandas writes them.
 """
 

@@ -354,25 +354,30 @@ def pandas_upper(text):
     """text.str.to_uppercase() as pandas' str.upper() writes it (pyarrow's kernel, one letter
     at a time): "ß" is "ẞ" (Polars: "SS"), and a letter Polars writes as two or three ("ﬁ" as
     "FI", "ŉ", Greek letters with accents or an iota) is kept, or made its one capital, as
-    pandas does: the text is cut around those letters and each piece upper-cased."""
+    pandas does: the text is cut around those letters and each piece upper-cased. A batch of
+    values that holds none of them gets Polars' own upper case, and only that is computed."""
     kept, iota = "[{_escaped(UPPER_KEPT)}]", "[{UPPER_IOTA}]"
-    text = text.str.replace_all("ß", "ẞ", literal=True)
-    piece = pl.element()
-    by_piece = (
-        text.str.extract_all(f"{{kept}}|{{iota}}|[^{_escaped(UPPER_KEPT)}{UPPER_IOTA}]+")
-        .list.eval(
-            pl.when(piece.str.contains(f"^{{kept}}$")).then(piece)
-            .when(piece.str.contains(f"^{{iota}}$")).then(piece.str.to_titlecase())
-            .otherwise(piece.str.to_uppercase())
+
+    def upper(values):
+        values = values.str.replace_all("ß", "ẞ", literal=True)
+        special = values.str.contains(f"{{kept}}|{{iota}}")
+        if not special.any():
+            return values.str.to_uppercase()
+        piece = pl.element()
+        by_piece = (
+            pl.first().str.extract_all(f"{{kept}}|{{iota}}|[^{_escaped(UPPER_KEPT)}{UPPER_IOTA}]+")
+            .list.eval(
+                pl.when(piece.str.contains(f"^{{kept}}$")).then(piece)
+                .when(piece.str.contains(f"^{{iota}}$")).then(piece.str.to_titlecase())
+                .otherwise(piece.str.to_uppercase())
+            )
+            .list.join("")
         )
-        .list.join("")
-    )
-    special = text.str.contains(f"{{kept}}|{{iota}}")
-    return (
-        pl.when(special.any())  # else only Polars' own upper case is computed
-        .then(pl.when(special).then(by_piece).otherwise(text.str.to_uppercase()))
-        .otherwise(text.str.to_uppercase())
-    )
+        return values.to_frame().select(
+            pl.when(special).then(by_piece).otherwise(pl.first().str.to_uppercase())
+        ).to_series()
+
+    return text.map_batches(upper, return_dtype=pl.String, is_elementwise=True)
 '''
 
 
@@ -421,24 +426,25 @@ def pandas_title(text):
     three first in a word ("ﬁ" as "Fi") is kept: a letter without case set before it makes
     Polars read it as inside a word, and is taken out after. A letter without case (CJK,
     Hebrew, a modifier letter) ends a word for pandas, not for Polars: a mark that is no
-    letter (U+FFFF) is set after each, and taken out after. Where the column holds none of
+    letter (U+FFFF) is set after each, and taken out after. Where a batch of values holds none of
     these letters, Polars' own title case is pandas', and only that is computed."""
     kept, mark = "[{_escaped(TITLE_KEPT)}]", "{TITLE_MARK}"
     special = r"[ΣßǄ-ǌǱ-ǳİ\\u0307\\uffff{_escaped(TITLE_KEPT)}{TITLE_UNCASED}]"
-    letter_by_letter = (
-        text.str.replace_many({{"Σ": "σ", "ß": "ẞ"}})
-        .str.replace_all(r"{TITLE_UNCASED}", "$0\\uffff")
-        .str.replace_all(kept, mark + "$0")
-        .str.to_titlecase()
-        .str.replace_all("\\uffff", "", literal=True)
-        .str.replace_many({{"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\\u0307": "i"}})
-        .str.replace_all(mark + f"({{kept}})", "$1")
-    )
-    return (
-        pl.when(text.str.contains(special).any())
-        .then(letter_by_letter)
-        .otherwise(text.str.to_titlecase())
-    )
+
+    def title(values):
+        if not values.str.contains(special).any():
+            return values.str.to_titlecase()
+        return (
+            values.str.replace_many({{"Σ": "σ", "ß": "ẞ"}})
+            .str.replace_all(r"{TITLE_UNCASED}", "$0\\uffff")
+            .str.replace_all(kept, mark + "$0")
+            .str.to_titlecase()
+            .str.replace_all("\\uffff", "", literal=True)
+            .str.replace_many({{"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\\u0307": "i"}})
+            .str.replace_all(mark + f"({{kept}})", "$1")
+        )
+
+    return text.map_batches(title, return_dtype=pl.String, is_elementwise=True)
 '''
 
 
