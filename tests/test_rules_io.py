@@ -1198,6 +1198,29 @@ def test_to_csv_writes_small_floats_as_python_does(data: Path, monkeypatch: pyte
     assert (polars_side / "out.csv").read_text(encoding="utf-8") == expected
 
 
+def test_small_floats_among_many_rows_are_written_as_python_does(data: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    # pandas is the reference implementation, the file text compared byte for byte: the
+    # replacements that make Polars' text Python's repr are given only to the values below
+    # 0.0001, one batch of values at a time; 200,000 rows (several batches), a few of them
+    # tiny, others 0, -0.0, NaN, large or negative, in both columns
+    pandas_side, polars_side, converted = written_by_both("""
+        import numpy as np
+        import pandas as pd
+        rng = np.random.default_rng(11)
+        x = rng.normal(0, 50, 200_000)
+        x[rng.integers(0, 200_000, 40)] = rng.normal(0, 1e-5, 40)
+        x[rng.integers(0, 200_000, 40)] = 0.0
+        x[rng.integers(0, 200_000, 40)] = np.nan
+        x[:3] = [-0.0, 1e21, -3.5e-9]
+        df = pd.DataFrame({"x": x, "y": np.round(x, 3)})
+        df.to_csv("out.csv", index=False)
+        """, data, monkeypatch)
+    assert "PANDAS_CSV_FLOATS" in converted
+    expected = (pandas_side / "out.csv").read_text(encoding="utf-8")
+    assert "e-05" in expected and "e-06" in expected  # the behaviour the test is about
+    assert (polars_side / "out.csv").read_text(encoding="utf-8") == expected
+
+
 def test_read_csv_category_of_numbers_is_a_todo_with_data(data: Path) -> None:
     # pandas makes the categories numbers when every value reads as one ("007" becomes 7);
     # Polars' Categorical holds text: kept on pandas under a TODO (and it runs)

@@ -132,17 +132,22 @@ FLOAT_REPR = ((r"e-(\d)$", "e-0${1}"),
               (r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05"))
 CSV_FLOATS_DEFINITION = (
     "# Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars\n"
-    "# writes 0.00005 and 1.5e-7; NaN as an empty field.\n"
-    "# Only a column holding a value below 0.0001 (other than 0) needs the replacements.\n"
-    "PANDAS_CSV_FLOATS = (\n"
-    "    pl.when(\n"
-    "        (pl.selectors.float().abs() < 1e-4).and_(pl.selectors.float() != 0).any()\n"
-    "    )\n"
-    "    .then(\n"
-    "        pl.selectors.float().fill_nan(None).cast(pl.String)\n"
+    "# writes 0.00005 and 1.5e-7; NaN as an empty field. Only values below 0.0001 (other than 0)\n"
+    "# need the replacements, and only they are given them.\n"
+    "def pandas_csv_floats(values):\n"
+    "    text = values.fill_nan(None).cast(pl.String)\n"
+    "    small = (values.abs() < 1e-4) & (values != 0)\n"
+    "    if not small.any():\n"
+    "        return text\n"
+    "    repr_text = (\n"
+    "        text.filter(small)\n"
     + "".join(f'        .str.replace(r"{pattern}", "{text}")\n' for pattern, text in FLOAT_REPR)
     + "    )\n"
-    "    .otherwise(pl.selectors.float().fill_nan(None).cast(pl.String))\n"
+    "    return text.scatter(small.arg_true(), repr_text)\n"
+    "\n"
+    "\n"
+    "PANDAS_CSV_FLOATS = pl.selectors.float().map_batches(\n"
+    "    pandas_csv_floats, return_dtype=pl.String, is_elementwise=True,\n"
     ")\n")
 
 

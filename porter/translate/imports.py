@@ -128,7 +128,7 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (DTYPE_PROBE_CONSTANT, DTYPE_PROBE_DEFINITION),
                                  (WHITESPACE_CONSTANT, WHITESPACE_DEFINITION)):
         if constant in used and not _defines(module, constant):
-            body = _insert_after_imports(body, _constant(definition))
+            body = _insert_after_imports(body, *_constant(definition))
     from porter.rules.datetimes import DURATION_DEFINITION, DURATION_FUNCTION
     for function, definition in ((DIVIDE_FUNCTION, DIVIDE_DEFINITION),
                                  (DURATION_FUNCTION, DURATION_DEFINITION),
@@ -205,12 +205,14 @@ def _function(definition: str) -> cst.BaseCompoundStatement:
     return stmt.with_changes(leading_lines=[cst.EmptyLine(), cst.EmptyLine()])
 
 
-def _constant(definition: str) -> cst.SimpleStatementLine:
+def _constant(definition: str) -> list[cst.CSTNode]:
+    """The statements of a constant's definition (the function it calls first, if any), its
+    comment above the first."""
     module = cst.parse_module(definition)
-    stmt = module.body[0]
-    assert isinstance(stmt, cst.SimpleStatementLine)
+    first, *rest = module.body
     comments = [line for line in module.header if line.comment is not None]
-    return stmt.with_changes(leading_lines=[cst.EmptyLine(), *comments])
+    blank = [cst.EmptyLine()] * (2 if isinstance(first, cst.FunctionDef) else 1)  # as PEP 8 has it
+    return [first.with_changes(leading_lines=[*blank, *comments]), *rest]
 
 
 def plain_date_constants(module: cst.Module, facts: ImportFacts) -> cst.Module:
@@ -352,7 +354,7 @@ def _python_date(value: ast.expr, pandas_aliases: set[str]) -> str | None:
     return None
 
 
-def _insert_after_imports(body: list[cst.CSTNode], stmt: cst.CSTNode) -> list[cst.CSTNode]:
+def _insert_after_imports(body: list[cst.CSTNode], *stmts: cst.CSTNode) -> list[cst.CSTNode]:
     position = 0
     for i, node in enumerate(body):
         if isinstance(node, cst.SimpleStatementLine) and all(
@@ -363,7 +365,7 @@ def _insert_after_imports(body: list[cst.CSTNode], stmt: cst.CSTNode) -> list[cs
             position = 1
         else:
             break
-    return [*body[:position], stmt, *body[position:]]
+    return [*body[:position], *stmts, *body[position:]]
 
 
 def _polars_import() -> cst.Import:
