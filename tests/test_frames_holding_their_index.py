@@ -22,6 +22,21 @@ df = pd.read_csv("crossings.csv")
 g = df.groupby("leg").agg(cars=("cars", "sum"), fare=("fare", "mean"), boats=("boat", "nunique"))
 labels = list(g.index)
 """,
+    # a missing key kept as a group (dropna=False): pandas' fills, drops and running steps
+    # never touch the index, so the missing label stays missing
+    "missing key": """import pandas as pd
+import numpy as np
+df = pd.read_csv("crossings.csv")
+g = df.groupby("boat", dropna=False).agg(cars=("cars", "sum"), fare=("fare", "max"), legs=("leg", "nunique"))
+labels = list(g.index)
+""",
+    # a float key with a missing value (NaN among the fares), with missing values in the data
+    "float key": """import pandas as pd
+import numpy as np
+df = pd.read_csv("crossings.csv")
+g = df.groupby("fare", dropna=False).agg(cars=("cars", "max"), boats=("boat", "nunique"), top=("fare", "max"))
+labels = list(g.index)
+""",
     # the row labels a filter and a sort left, read later: carried as a column "index"
     "labelled": """import pandas as pd
 import numpy as np
@@ -79,6 +94,9 @@ def crossings(tmp_path, monkeypatch):
 @pytest.mark.parametrize("head", list(HEADS))
 @pytest.mark.parametrize("step", OPS)
 def test_each_step_leaves_the_index_as_pandas_does(step: str, head: str) -> None:
+    if step == "result = g.T" and head == "missing key":
+        pytest.xfail("a missing key becomes a column named NaN in pandas; a Polars column name "
+                     "cannot be missing, and the converted transpose stops with an error")
     try:
         exec(HEADS[head] + step, {})
     except Exception:  # noqa: BLE001 - a step pandas refuses is not one to port

@@ -16,7 +16,7 @@ from porter.rules import rule
 from porter.rules.totals import column_totals
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, column_of, derive,
-    derived_column, values_fixed,
+    derived_column, values_fixed, without_index,
 )
 from porter.translate.values import (
     NOT_NULLABLE, Column, Frame, Opaque, PandasValue, Scalar, Value, fresh_token,
@@ -174,7 +174,9 @@ def dropna(call: PandasCall, ctx: RuleContext) -> Value:
     if call.const("axis", None, 0) not in (0, "index"):
         raise Unsupported("dropping columns with missing values")
     subset = _subset(call, frame)
-    cols: Code = emit.col(emit.names_arg(subset)) if subset else emit.pl("all")
+    # pandas reads the columns, never the index (a missing key held as a column stays)
+    everything = without_index(emit.atom("pl.selectors.all()"), frame) if frame.index else emit.pl("all")
+    cols: Code = emit.col(emit.names_arg(subset)) if subset else everything
     thresh = call.const("thresh", None, None)
     how = call.const("how", None, "any")
     if thresh is not None:
@@ -182,6 +184,8 @@ def dropna(call: PandasCall, ctx: RuleContext) -> Value:
         code = frame.code.method("filter", emit.binop(present, ">=", thresh))
     elif how == "all":
         code = frame.code.method("filter", emit.unary("~", emit.pl("all_horizontal", cols.method("is_null"))))
+    elif frame.index and not subset:
+        code = frame.code.method("drop_nulls", everything)
     else:
         code = frame.code.method("drop_nulls", *([emit.names_arg(subset)] if subset else []))
     return derive(frame, code, same_rows=False)
@@ -386,8 +390,8 @@ def _fill_each_column(frame: Frame, node: cst.Dict, ctx: RuleContext) -> Value:
         if not (isinstance(key, Opaque) and isinstance(key.const, str)):
             raise Unsupported("a dict of fill values whose keys are not names written out")
         name = key.const
-        if frame.columns is not None and name not in frame.columns:
-            continue  # pandas ignores names that are not columns
+        if frame.columns is not None and name not in frame.columns or name in frame.index:
+            continue  # pandas ignores names that are not columns (an index's are not)
         dtype = frame.dtype(name)
         value = ctx.evaluate(element.value, {})
         if isinstance(value, Opaque) and value.is_const and not isinstance(value.const, (dict, list)):
@@ -407,6 +411,23 @@ def _fill_each_column(frame: Frame, node: cst.Dict, ctx: RuleContext) -> Value:
         ctx.lower("the columns are not known: a name that is not a column is ignored by "
                   "pandas and an error in Polars", 0.9)
     return with_columns(frame, items)
+
+
+# the columns Polars' DataFrame.fill_null(value) fills, by the value's Python type
+_FILLED_BY_TYPE = {bool: "pl.selectors.boolean()", int: "pl.selectors.numeric()",
+                   float: "pl.selectors.numeric()", str: "pl.selectors.by_dtype(pl.String, pl.Categorical)"}
+
+
+def _fill_columns(frame: Frame, value: object) -> Code:
+    """frame.fill_null(value): the columns whose type can hold the value filled; of a frame
+    holding pandas' index in columns (a groupby's keys), never those: pandas fills the
+    columns only."""
+    if not frame.index:
+        return frame.code.method("fill_null", value)
+    selector = _FILLED_BY_TYPE.get(type(value))
+    if selector is None:
+        raise Unsupported(f"filling {value!r} into a frame that holds its index in columns")
+    return frame.code.method("with_columns", without_index(emit.atom(selector), frame).method("fill_null", value))
 
 
 @rule("frame.fillna")
@@ -433,8 +454,8 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
         from porter.rules.assign import with_columns
         items = []
         for name, v in value.const.items():
-            if frame.columns is not None and name not in frame.columns:
-                continue  # pandas ignores names that are not columns
+            if frame.columns is not None and name not in frame.columns or name in frame.index:
+                continue  # pandas ignores names that are not columns (an index's are not)
             if _mixes_types(v, frame.dtype(name)):
                 raise Unsupported(f"filling {v!r} into the {frame.dtype(name)} column {name!r} "
                                   f"{MIXED_COLUMN}")
@@ -464,13 +485,14 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
         return derive(frame, frame.code, same_rows=True)  # pandas fills NaN with NaN: nothing
     if isinstance(value, Opaque) and value.is_const and not isinstance(value.const, (dict, list)):
         # A Python value (not pl.lit): Polars fills only the columns whose type can hold it.
-        code = frame.code.method("fill_null", value.const)
+        code = _fill_columns(frame, value.const)
         if isinstance(value.const, float) and value.const.is_integer():
             # fill_null(0.0) would make every integer column float; pandas' int64 columns
             # (no missing value) stay integers: fill them with the whole number
-            code = frame.code.method("with_columns", emit.atom("pl.selectors.float()").method(
-                "fill_null", value.const), emit.atom("pl.selectors.integer()").method(
-                "fill_null", int(value.const)))
+            code = frame.code.method(
+                "with_columns",
+                without_index(emit.atom("pl.selectors.float()"), frame).method("fill_null", value.const),
+                without_index(emit.atom("pl.selectors.integer()"), frame).method("fill_null", int(value.const)))
         elif isinstance(value.const, float):
             plain = _plain_ints(frame)
             if plain:
@@ -481,12 +503,12 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
             # Polars' fill_null(0.5) makes the integer columns Float64
             frame = replace(frame, dtypes=tuple((c, "float" if t == "int" else t)
                                                 for c, t in frame.dtypes))
-        others = [c for c, t in frame.dtypes if _mixes_types(value.const, t)]
+        others = [c for c, t in frame.dtypes if _mixes_types(value.const, t) and c not in frame.index]
         if others and _kind_of(value.const) == "number" \
                 and all(frame.dtype(c) == "str" for c in others):
             # pandas writes the number into the text columns too (they become object);
             # Polars' fill_null(number) leaves them missing: fill them with its text
-            code = code.method("with_columns", emit.atom("pl.selectors.string()").method(
+            code = code.method("with_columns", without_index(emit.atom("pl.selectors.string()"), frame).method(
                 "fill_null", str(value.const)))
             ctx.lower(f"pandas holds the number {value.const!r} among the texts of "
                       f"{', '.join(others)} (an object column); Polars the text "
@@ -499,7 +521,7 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
         elif not complete and _kind_of(value.const) == "number":
             # text columns porter does not know of (a frame back from pandas): pandas writes
             # the number into them too; the string selector finds them when the plan runs
-            code = code.method("with_columns", emit.atom("pl.selectors.string()").method(
+            code = code.method("with_columns", without_index(emit.atom("pl.selectors.string()"), frame).method(
                 "fill_null", str(value.const)))
     else:
         plain = _plain_ints(frame)
@@ -508,9 +530,9 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
         if plain and _untyped_fill(value):
             ctx.lower(f"`{_short(value)}` is of a type porter does not know: if it is "
                       + fraction_into_ints("a fraction", ", ".join(plain)), 0.8)
-        code = frame.code.method("with_columns", emit.atom("pl.selectors.numeric()").method(
+        code = frame.code.method("with_columns", without_index(emit.atom("pl.selectors.numeric()"), frame).method(
             "fill_null", fill_value(value, frame, ctx)))
-        others = [c for c, t in frame.dtypes if t not in ("int", "float")]
+        others = [c for c, t in frame.dtypes if t not in ("int", "float") and c not in frame.index]
     if others:
         ctx.lower(f"pandas also fills {', '.join(others)} (making object columns); Polars leaves "
                   "them missing", 0.7)
@@ -529,7 +551,9 @@ def fill_direction(call: PandasCall, ctx: RuleContext) -> Value:
     limits = [limit] if limit is not None else []
     receiver = call.receiver
     if isinstance(receiver, Frame):
-        code = receiver.code.method("with_columns", emit.pl("all").method(method, *limits))
+        # every column, never the index (a missing key held as a column stays missing)
+        every = without_index(emit.atom("pl.selectors.all()"), receiver) if receiver.index else emit.pl("all")
+        code = receiver.code.method("with_columns", every.method(method, *limits))
         return derive(receiver, code, same_rows=True)
     assert isinstance(receiver, Column)
     return derived_column(receiver, receiver.code.method(method, *limits), dtype=receiver.dtype)

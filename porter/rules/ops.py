@@ -23,7 +23,7 @@ from porter.rules.datetimes import is_timedelta, timedelta_arithmetic
 from porter.rules.io_options import DIVIDE_FUNCTION
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, check_same_rows, derive, derived_column,
-    value_dtype,
+    value_dtype, without_index,
 )
 from porter.translate.handover import to_pandas
 from porter.translate.values import Column, Frame, Opaque, PandasValue, Scalar, Value
@@ -848,13 +848,16 @@ def round_(call: PandasCall, ctx: RuleContext) -> Value:
             code = receiver.code.method("round", decimals)
         return derived_column(receiver, code, dtype=receiver.dtype)
     assert isinstance(receiver, Frame)
-    # pandas rounds every numeric column; integers are unchanged by it
+    # pandas rounds every numeric column, never the index (float keys held as columns);
+    # integers are unchanged by it
     if decimals > 0 and float32_possible(ctx):
         code = receiver.code.method(
-            "with_columns", emit.atom("pl.selectors.by_dtype(pl.Float64)").method("round", decimals),
-            float32_round(emit.atom("pl.selectors.by_dtype(pl.Float32)"), decimals))
+            "with_columns",
+            without_index(emit.atom("pl.selectors.by_dtype(pl.Float64)"), receiver).method("round", decimals),
+            float32_round(without_index(emit.atom("pl.selectors.by_dtype(pl.Float32)"), receiver), decimals))
     else:
-        code = receiver.code.method("with_columns", emit.atom("pl.selectors.float()").method("round", decimals))
+        code = receiver.code.method(
+            "with_columns", without_index(emit.atom("pl.selectors.float()"), receiver).method("round", decimals))
     return derive(receiver, code, same_rows=True)
 
 
