@@ -37,6 +37,13 @@ df = pd.read_csv("crossings.csv")
 g = df.groupby("fare", dropna=False).agg(cars=("cars", "max"), boats=("boat", "nunique"), top=("fare", "max"))
 labels = list(g.index)
 """,
+    # two keys, one of them missing in a group: a MultiIndex in pandas
+    "two keys": """import pandas as pd
+import numpy as np
+df = pd.read_csv("crossings.csv")
+g = df.groupby(["leg", "boat"], dropna=False).agg(cars=("cars", "sum"), fare=("fare", "max"))
+labels = list(g.index)
+""",
     # the row labels a filter and a sort left, read later: carried as a column "index"
     "labelled": """import pandas as pd
 import numpy as np
@@ -97,6 +104,11 @@ def test_each_step_leaves_the_index_as_pandas_does(step: str, head: str) -> None
     if step == "result = g.T" and head == "missing key":
         pytest.xfail("a missing key becomes a column named NaN in pandas; a Polars column name "
                      "cannot be missing, and the converted transpose stops with an error")
+    if step == "result = g.sort_index(ascending=False)" and head == "two keys":
+        pytest.xfail("handed to pandas under a TODO, the keys are made its index again by "
+                     "set_index, which codes a missing key as missing (-1) where groupby("
+                     "dropna=False) made NaN a value of the level: sorted descending, pandas "
+                     "puts that group first in its own result and last in the rebuilt one")
     try:
         exec(HEADS[head] + step, {})
     except Exception:  # noqa: BLE001 - a step pandas refuses is not one to port
