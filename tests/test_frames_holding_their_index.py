@@ -104,11 +104,6 @@ def test_each_step_leaves_the_index_as_pandas_does(step: str, head: str) -> None
     if step == "result = g.T" and head == "missing key":
         pytest.xfail("a missing key becomes a column named NaN in pandas; a Polars column name "
                      "cannot be missing, and the converted transpose stops with an error")
-    if step == "result = g.sort_index(ascending=False)" and head == "two keys":
-        pytest.xfail("handed to pandas under a TODO, the keys are made its index again by "
-                     "set_index, which codes a missing key as missing (-1) where groupby("
-                     "dropna=False) made NaN a value of the level: sorted descending, pandas "
-                     "puts that group first in its own result and last in the rebuilt one")
     try:
         exec(HEADS[head] + step, {})
     except Exception:  # noqa: BLE001 - a step pandas refuses is not one to port

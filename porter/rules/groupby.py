@@ -658,7 +658,8 @@ def aggregate(grouped: Grouped, exprs: list[Code], names: list[str], ctx: RuleCo
     frame = Frame(code, columns=columns, index=index, labels_intact=not grouped.as_index,
                   dtypes=tuple((c, t) for c, t in known if t is not None), rows=rows,
                   grouped_rows=rows if grouped.sort and grouped.dropna and index else None,
-                  levels_as_met=not grouped.sort and len(index) > 1)
+                  levels_as_met=not grouped.sort and len(index) > 1,
+                  levels_with_missing=grouped.sort and not grouped.dropna and len(index) > 1)
     if is_series and grouped.as_index:
         name = series_name
         return Column(emit.col(name if name is not None else names[0]), frame=frame,

@@ -2029,7 +2029,8 @@ class _Walker:
                                            if c in value.frame.index)
                               + (((column, value.dtype),) if value.dtype else ()),
                               grouped_rows=rows if value.frame.grouped_rows == value.frame.rows
-                              else None, levels_as_met=value.frame.levels_as_met)
+                              else None, levels_as_met=value.frame.levels_as_met,
+                              levels_with_missing=value.frame.levels_with_missing)
                 env[name] = Column(emit.col(column), frame=frame, name=value.name,
                                    dtype=value.dtype, refs=frozenset({column}),
                                    binding=self.statement_key)

@@ -89,6 +89,11 @@ def _labels(code: Code, frame: Frame) -> Code:
         # met the keys (unstack lays them out so): grouping the one row of each combination
         # again, in pandas, makes them so, and first() of one row is that row's value
         return code.method("groupby", keys, sort=False, dropna=False).method("first")
+    if frame.levels_with_missing:
+        # a missing key is a value of its level (sorted last) in groupby(dropna=False)'s
+        # index, missing in set_index's: grouping the one row of each combination again
+        # makes the levels so
+        return code.method("groupby", keys, dropna=False).method("first")
     return code.method("set_index", keys)
 
 

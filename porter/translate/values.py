@@ -73,6 +73,10 @@ class Frame(Value):
     # pandas made the levels of the index in the order it met the keys (a groupby(sort=False)
     # on two or more keys), not sorted as set_index makes them; unstack lays them out so
     levels_as_met: bool = field(default=False, kw_only=True)
+    # pandas' groupby(dropna=False) on two or more keys made a missing key a value of its level
+    # (sorted last), where set_index codes it as missing: sort_index and unstack read the two
+    # differently, so a hand-over makes the levels as the groupby made them
+    levels_with_missing: bool = field(default=False, kw_only=True)
     # a pivot (pivot_table, crosstab, unstack) on an integer key made the columns not named
     # here: pandas labels them with the key's values (2024), Polars names them as text
     # ("2024"); the names here (the index keys, a margin, columns written since) are text in
