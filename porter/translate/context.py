@@ -305,12 +305,25 @@ def row_labels_carried(frame: Frame) -> bool:
     return frame.index == (ROW_LABELS,) and frame.index_unnamed and frame.dtype(ROW_LABELS) == "int"
 
 
+# the porter types a selector of one kind can select (an index column of another known type is
+# not among its columns, and is not named)
+_SELECTED_TYPES = {"pl.selectors.float()": {"float"}, "pl.selectors.by_dtype(pl.Float64)": {"float"},
+                   "pl.selectors.by_dtype(pl.Float32)": {"float"},
+                   "pl.selectors.integer()": {"int"}, "pl.selectors.numeric()": {"int", "float"},
+                   "pl.selectors.string()": {"str"}, "pl.selectors.boolean()": {"bool"},
+                   "pl.selectors.by_dtype(pl.String, pl.Categorical)": {"str", "category"}}
+
+
 def without_index(selector: Code, frame: Frame) -> Code:
     """A column selector without the columns holding the frame's index (a groupby's keys, row
-    labels carried as a column): pandas computes on the columns, never on the index."""
-    if not frame.index:
+    labels carried as a column): pandas computes on the columns, never on the index. An index
+    column whose known type the selector does not select is left unnamed."""
+    kinds = _SELECTED_TYPES.get(selector.text)
+    index = [name for name in frame.index
+             if kinds is None or frame.dtype(name) is None or frame.dtype(name) in kinds]
+    if not index:
         return selector
-    return emit.binop(selector, "-", emit.call("pl.selectors.by_name", *frame.index))
+    return emit.binop(selector, "-", emit.call("pl.selectors.by_name", *index))
 
 
 def column_of(frame: Frame, name: str, code: Code | None = None) -> Column:
