@@ -79,24 +79,25 @@ def pandas_title(text):
     three first in a word ("ﬁ" as "Fi") is kept: a letter without case set before it makes
     Polars read it as inside a word, and is taken out after. A letter without case (CJK,
     Hebrew, a modifier letter) ends a word for pandas, not for Polars: a mark that is no
-    letter (U+FFFF) is set after each, and taken out after. Where the column holds none of
+    letter (U+FFFF) is set after each, and taken out after. Where a batch of values holds none of
     these letters, Polars' own title case is pandas', and only that is computed."""
     kept, mark = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾲᾴᾶᾷῂῄῆῇῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷﬀ-ﬆﬓ-ﬗ]", "\ua66e"
     special = r"[ΣßǄ-ǌǱ-ǳİ\u0307\uffffŉǰΐΰևẖ-ẚὐὒὔὖᾲᾴᾶᾷῂῄῆῇῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷﬀ-ﬆﬓ-ﬗ[\p{Alphabetic}&&[^\p{Lu}\p{Ll}\p{Lt}]&&[^\p{Cased}&&[\p{Nl}\x{24b6}-\x{24e9}]]]]"
-    letter_by_letter = (
-        text.str.replace_many({"Σ": "σ", "ß": "ẞ"})
-        .str.replace_all(r"[\p{Alphabetic}&&[^\p{Lu}\p{Ll}\p{Lt}]&&[^\p{Cased}&&[\p{Nl}\x{24b6}-\x{24e9}]]]", "$0\uffff")
-        .str.replace_all(kept, mark + "$0")
-        .str.to_titlecase()
-        .str.replace_all("\uffff", "", literal=True)
-        .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"})
-        .str.replace_all(mark + f"({kept})", "$1")
-    )
-    return (
-        pl.when(text.str.contains(special).any())
-        .then(letter_by_letter)
-        .otherwise(text.str.to_titlecase())
-    )
+
+    def title(values):
+        if not values.str.contains(special).any():
+            return values.str.to_titlecase()
+        return (
+            values.str.replace_many({"Σ": "σ", "ß": "ẞ"})
+            .str.replace_all(r"[\p{Alphabetic}&&[^\p{Lu}\p{Ll}\p{Lt}]&&[^\p{Cased}&&[\p{Nl}\x{24b6}-\x{24e9}]]]", "$0\uffff")
+            .str.replace_all(kept, mark + "$0")
+            .str.to_titlecase()
+            .str.replace_all("\uffff", "", literal=True)
+            .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"})
+            .str.replace_all(mark + f"({kept})", "$1")
+        )
+
+    return text.map_batches(title, return_dtype=pl.String, is_elementwise=True)
 
 
 # The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
@@ -159,20 +160,26 @@ PANDAS_CSV_DURATIONS = (
     )
 )
 
+
 # Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
-# writes 0.00005 and 1.5e-7; NaN as an empty field.
-# Only a column holding a value below 0.0001 (other than 0) needs the replacements.
-PANDAS_CSV_FLOATS = (
-    pl.when(
-        (pl.selectors.float().abs() < 1e-4).and_(pl.selectors.float() != 0).any()
-    )
-    .then(
-        pl.selectors.float().fill_nan(None).cast(pl.String)
+# writes 0.00005 and 1.5e-7; NaN as an empty field. Only values below 0.0001 (other than 0)
+# need the replacements, and only they are given them.
+def pandas_csv_floats(values):
+    text = values.fill_nan(None).cast(pl.String)
+    small = (values.abs() < 1e-4) & (values != 0)
+    if not small.any():
+        return text
+    repr_text = (
+        text.filter(small)
         .str.replace(r"e-(\d)$", "e-0${1}")
         .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
         .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
     )
-    .otherwise(pl.selectors.float().fill_nan(None).cast(pl.String))
+    return text.scatter(small.arg_true(), repr_text)
+
+
+PANDAS_CSV_FLOATS = pl.selectors.float().map_batches(
+    pandas_csv_floats, return_dtype=pl.String, is_elementwise=True,
 )
 
 # Integer columns as pandas' to_csv writes them: one holding a missing value is float in

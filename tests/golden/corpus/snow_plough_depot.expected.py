@@ -67,20 +67,26 @@ PANDAS_CSV_DURATIONS = (
     )
 )
 
+
 # Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
-# writes 0.00005 and 1.5e-7; NaN as an empty field.
-# Only a column holding a value below 0.0001 (other than 0) needs the replacements.
-PANDAS_CSV_FLOATS = (
-    pl.when(
-        (pl.selectors.float().abs() < 1e-4).and_(pl.selectors.float() != 0).any()
-    )
-    .then(
-        pl.selectors.float().fill_nan(None).cast(pl.String)
+# writes 0.00005 and 1.5e-7; NaN as an empty field. Only values below 0.0001 (other than 0)
+# need the replacements, and only they are given them.
+def pandas_csv_floats(values):
+    text = values.fill_nan(None).cast(pl.String)
+    small = (values.abs() < 1e-4) & (values != 0)
+    if not small.any():
+        return text
+    repr_text = (
+        text.filter(small)
         .str.replace(r"e-(\d)$", "e-0${1}")
         .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
         .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
     )
-    .otherwise(pl.selectors.float().fill_nan(None).cast(pl.String))
+    return text.scatter(small.arg_true(), repr_text)
+
+
+PANDAS_CSV_FLOATS = pl.selectors.float().map_batches(
+    pandas_csv_floats, return_dtype=pl.String, is_elementwise=True,
 )
 
 # Integer columns as pandas' to_csv writes them: one holding a missing value is float in

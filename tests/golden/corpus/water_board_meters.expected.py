@@ -73,25 +73,30 @@ def pandas_upper(text):
     """text.str.to_uppercase() as pandas' str.upper() writes it (pyarrow's kernel, one letter
     at a time): "ß" is "ẞ" (Polars: "SS"), and a letter Polars writes as two or three ("ﬁ" as
     "FI", "ŉ", Greek letters with accents or an iota) is kept, or made its one capital, as
-    pandas does: the text is cut around those letters and each piece upper-cased."""
+    pandas does: the text is cut around those letters and each piece upper-cased. A batch of
+    values that holds none of them gets Polars' own upper case, and only that is computed."""
     kept, iota = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗ]", "[ᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]"
-    text = text.str.replace_all("ß", "ẞ", literal=True)
-    piece = pl.element()
-    by_piece = (
-        text.str.extract_all(f"{kept}|{iota}|[^ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]+")
-        .list.eval(
-            pl.when(piece.str.contains(f"^{kept}$")).then(piece)
-            .when(piece.str.contains(f"^{iota}$")).then(piece.str.to_titlecase())
-            .otherwise(piece.str.to_uppercase())
+
+    def upper(values):
+        values = values.str.replace_all("ß", "ẞ", literal=True)
+        special = values.str.contains(f"{kept}|{iota}")
+        if not special.any():
+            return values.str.to_uppercase()
+        piece = pl.element()
+        by_piece = (
+            pl.first().str.extract_all(f"{kept}|{iota}|[^ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]+")
+            .list.eval(
+                pl.when(piece.str.contains(f"^{kept}$")).then(piece)
+                .when(piece.str.contains(f"^{iota}$")).then(piece.str.to_titlecase())
+                .otherwise(piece.str.to_uppercase())
+            )
+            .list.join("")
         )
-        .list.join("")
-    )
-    special = text.str.contains(f"{kept}|{iota}")
-    return (
-        pl.when(special.any())  # else only Polars' own upper case is computed
-        .then(pl.when(special).then(by_piece).otherwise(text.str.to_uppercase()))
-        .otherwise(text.str.to_uppercase())
-    )
+        return values.to_frame().select(
+            pl.when(special).then(by_piece).otherwise(pl.first().str.to_uppercase())
+        ).to_series()
+
+    return text.map_batches(upper, return_dtype=pl.String, is_elementwise=True)
 
 
 # The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
@@ -102,20 +107,26 @@ PANDAS_WHITESPACE = (
     "\u2008\u2009\u200a\u2028\u2029\u202f\u205f\u3000"
 )
 
+
 # Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
-# writes 0.00005 and 1.5e-7; NaN as an empty field.
-# Only a column holding a value below 0.0001 (other than 0) needs the replacements.
-PANDAS_CSV_FLOATS = (
-    pl.when(
-        (pl.selectors.float().abs() < 1e-4).and_(pl.selectors.float() != 0).any()
-    )
-    .then(
-        pl.selectors.float().fill_nan(None).cast(pl.String)
+# writes 0.00005 and 1.5e-7; NaN as an empty field. Only values below 0.0001 (other than 0)
+# need the replacements, and only they are given them.
+def pandas_csv_floats(values):
+    text = values.fill_nan(None).cast(pl.String)
+    small = (values.abs() < 1e-4) & (values != 0)
+    if not small.any():
+        return text
+    repr_text = (
+        text.filter(small)
         .str.replace(r"e-(\d)$", "e-0${1}")
         .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
         .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
     )
-    .otherwise(pl.selectors.float().fill_nan(None).cast(pl.String))
+    return text.scatter(small.arg_true(), repr_text)
+
+
+PANDAS_CSV_FLOATS = pl.selectors.float().map_batches(
+    pandas_csv_floats, return_dtype=pl.String, is_elementwise=True,
 )
 
 # Integer columns as pandas' to_csv writes them: one holding a missing value is float in
