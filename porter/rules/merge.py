@@ -218,14 +218,7 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
             dtypes[indicator] = "enum"
     ints = [c for c, _ in float_ints if columns is not None and c in columns]
     if ints:
-        # pandas' type is known once the join has run: float64 where it left a value missing,
-        # int64 where every row found its match. The joined table gives each such column the
-        # type pandas gives it, so what follows (fillna, astype(str), sums, to_csv) reads it
-        # as pandas does; porter cannot tell which, so it knows no type for them
-        names = emit.render(tuple(ints))
-        code = code.method("collect").method("pipe", emit.atom(
-            f"lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in {names} "
-            "if t[c].has_nulls()])")).method("lazy")
+        code = _float_where_missing(code, ints)
         float_ints = tuple(m for m in float_ints if m[0] not in ints)
         dtypes = {c: t for c, t in dtypes.items() if c not in ints}
     marks: dict[str, Any] = {}
@@ -239,6 +232,18 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
 
 
 _SIDE_MARKS = ("_in_left", "_in_right")
+
+
+def _float_where_missing(code: Code, ints: Sequence[str]) -> Code:
+    """The joined table with each int column of `ints` made Float64 where the join left it a
+    missing value. pandas' type is known once the join has run: float64 where it left a value
+    missing, int64 where every row found its match. The joined table gives each such column the
+    type pandas gives it, so what follows (fillna, astype(str), sums, to_csv, a row read as a
+    Series) reads it as pandas does; porter cannot tell which, so it knows no type for them."""
+    names = emit.render(tuple(ints))
+    return code.method("collect").method("pipe", emit.atom(
+        f"lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in {names} "
+        "if t[c].has_nulls()])")).method("lazy")
 
 
 def _nullable_marks(frames: tuple[Frame, Frame], before: tuple[_Side, _Side],
@@ -554,8 +559,9 @@ def merge_asof(call: PandasCall, ctx: RuleContext) -> Value:
     two names keep the right one, in the right frame's order); suffixes on both sides for the
     other columns both frames have; an int key against a float one.
     Caveats: a missing `by` value matches a missing one
-    in pandas and nothing in Polars (0.95); an int column of the right frame with an unmatched
-    row stays an integer column with missing values (float in pandas), as for merge.
+    in pandas and nothing in Polars (0.95). An int column of the right frame is made Float64
+    once the join has run where a left row found no match, as pandas makes it float64 (as for
+    merge).
     """
     args = _named(call, ASOF_PARAMS)
     left, right = args.arg("left"), args.arg("right")
@@ -638,7 +644,21 @@ def merge_asof(call: PandasCall, ctx: RuleContext) -> Value:
         columns = (*lside.columns,
                    *(c for c in rside.columns if not (c in once and c in rside.keys)))
     dtypes = {**rside.dtypes, **lside.dtypes} if columns is not None else {}
-    return Frame(code, columns=columns, labels_intact=True,
+    # a left row that finds no right row (or none within the tolerance) gives the right's
+    # columns missing values: pandas then holds an int column as float64, as after a merge
+    # (pandas' nullable integers stay integers)
+    nullable = dict(right.nullable_ints or ())
+    ints = [c for c, t in rside.dtypes.items() if t == "int" and columns is not None
+            and c in columns and c not in lside.columns and not (c in once and c in rside.keys)
+            and not nullable.get(c)]
+    float_ints: tuple[tuple[str, str], ...] = ()
+    if ints:
+        code = _float_where_missing(code, ints)
+        dtypes = {c: t for c, t in dtypes.items() if c not in ints}
+    elif columns is None:
+        float_ints = tuple((c, "merge_asof left a row unmatched") for c, t in rside.dtypes.items()
+                           if t == "int" and c not in once)
+    return Frame(code, columns=columns, labels_intact=True, float_ints=float_ints,
                  dtypes=tuple((c, dtypes[c]) for c in columns or () if c in dtypes))
 
 
