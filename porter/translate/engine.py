@@ -1632,7 +1632,10 @@ class _Walker:
         frame = env[frames[0]]
         assert isinstance(frame, Frame)
         if not frame.labels_intact or frame.index or frame.columns is None \
-                or "index" in frame.columns or frame.nullable_ints is None:
+                or "index" in frame.columns \
+                or frame.nullable_ints is None and self.services.nullable_ints_possible:
+            # (which columns are pandas' nullable ints is unknown only where the script can
+            # make them at all)
             return None
         labelled = with_row_labels(frame)
         result = Evaluator({**env, frames[0]: labelled}, self.services).eval(expr)
