@@ -782,13 +782,17 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
     missing there (an int column becomes float64 in pandas, even when that frame has no rows:
     cast to Float64), int and float columns take the common type (C01); join="inner" and
     sort=True when the columns are known; ignore_index=True gives fresh labels (C02).
-    Caveats: axis=1, keys=, Series and frames porter does not track are TODOs.
+    keys=[...] with names=[outer, inner]: each piece, labelled 0..n-1, given its key and its
+    row numbers as index columns (_keyed_frames).
+    Caveats: axis=1, other keys=, Series and frames porter does not track are TODOs.
     """
-    if call.has("keys") or call.has("levels") or call.has("names"):
+    keyed = call.has("keys") or call.has("levels") or call.has("names")
+    if keyed and (call.has("levels") or call.const("ignore_index", None, False)
+                  or call.const("axis", None, 0) not in (0, "index", "rows")):
         raise ctx.todo("keys= labels each piece in a MultiIndex: add a column per frame "
                        "(with_columns(pl.lit(key))) before the concat")
     ctx.reject_unknown(call, "objs", "axis", "join", "ignore_index", "sort", "copy",
-                       "verify_integrity", positional=1)
+                       "verify_integrity", "keys", "names", positional=1)
     axis = call.const("axis", None, 0)
     if axis in (1, "columns"):
         raise ctx.todo("axis=1 lines frames up by their row labels (an outer join of the "
@@ -803,6 +807,8 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo(f"join={join!r}")
     ignore_index = bool(call.const("ignore_index", None, False))
     frames, listed = _listed_frames(call, ctx)
+    if keyed:
+        frames = _keyed_frames(frames, listed, call, ctx)
     index = frames[0].index
     if ignore_index:  # pandas drops the labels; porter's index columns go with them
         frames = [_drop_index(f) for f in frames]
@@ -834,6 +840,41 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
     return Frame(code, columns=columns, dtypes=dtypes, index=index,
                  labels_intact=ignore_index or len(frames) == 1 and frames[0].labels_intact,
                  sites=tuple(s for f in frames for s in f.sites), **marks)
+
+
+def _keyed_frames(frames: list[Frame], listed: Code | None, call: PandasCall,
+                  ctx: RuleContext) -> list[Frame]:
+    """pd.concat(frames, keys=[...], names=[outer, inner]): pandas labels each row with the key
+    of its piece and its own label there, a two-level index named `names`. Each piece, still
+    labelled 0..n-1, is given both as index columns (the key, its row number), so that
+    reset_index() puts them first, as pandas does."""
+    keys = call.const("keys", None, None)
+    names = call.const("names", None, None)
+    if listed is not None or not (isinstance(keys, (list, tuple)) and len(keys) == len(frames)
+                                  and all(isinstance(k, str) for k in keys)):
+        raise ctx.todo("keys= other than one text per frame written in the list: add a column "
+                       "per frame (with_columns(pl.lit(key))) before the concat")
+    if not (isinstance(names, (list, tuple)) and len(names) == 2
+            and all(isinstance(n, str) for n in names) and names[0] != names[1]):
+        raise ctx.todo("keys= without names= for both levels (pandas names them level_0, "
+                       "level_1 only where the index is put back): add a column per frame "
+                       "(with_columns(pl.lit(key))) before the concat")
+    outer, inner = names
+    keyed = []
+    for frame, key in zip(frames, keys):
+        if frame.index or not frame.labels_intact:
+            raise ctx.todo("a piece whose row labels are no longer 0..n-1 (or that keeps an "
+                           "index): its labels are the inner level")
+        if frame.columns is None or {outer, inner} & set(frame.columns):
+            raise ctx.todo("a piece whose columns porter does not know, or with a column named "
+                           "like a level")
+        code = frame.code.method("select", emit.pl("lit", key).method("alias", outer),
+                                 emit.pl("int_range", emit.pl("len"), dtype=emit.atom("pl.Int64"))
+                                 .method("alias", inner), emit.pl("all"))
+        keyed.append(replace(frame, code=code, columns=(outer, inner, *frame.columns),
+                             dtypes=((outer, "str"), (inner, "int"), *frame.dtypes),
+                             index=(outer, inner), labels_intact=False))
+    return keyed
 
 
 def _concat_nullable(frames: list[Frame], columns: tuple[str, ...] | None
