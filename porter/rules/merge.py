@@ -16,6 +16,7 @@ import libcst as cst
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
+from porter.translate import handover
 from porter.translate.context import PandasCall, RuleContext, Unsupported, nullable_mark
 from porter.translate.values import NOT_NULLABLE, Column, Frame, FrameList, Opaque, Scalar, Value
 
@@ -794,6 +795,8 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.reject_unknown(call, "objs", "axis", "join", "ignore_index", "sort", "copy",
                        "verify_integrity", "keys", "names", positional=1)
     axis = call.const("axis", None, 0)
+    if axis in (1, "columns") and not keyed:
+        return _side_by_side(call, ctx)
     if axis in (1, "columns"):
         raise ctx.todo("axis=1 lines frames up by their row labels (an outer join of the "
                        "indexes), not by position: join on a label column, or use "
@@ -842,6 +845,79 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
                  sites=tuple(s for f in frames for s in f.sites), **marks)
 
 
+def _side_by_side(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.concat([s1, s2, ...], axis=1) of Series each labelled by one key (a groupby's,
+    value_counts', a Series written with index=) -> a full join of them on their labels.
+
+    pandas lines them up on their labels: the union of the labels in the order they are first
+    met (join="outer"; "inner": the labels of all, in the first's order), a missing label
+    matching a missing one; a label repeated in one of them makes pandas raise (validate="1:1"
+    raises too). The index is named when every Series' index has that name. An int Series is
+    float64 where a label found no value (made Float64 once the join has run)."""
+    join = call.const("join", None, "outer")
+    if join not in ("outer", "inner") or call.const("sort", None, False) \
+            or call.const("ignore_index", None, False) or call.const("verify_integrity", None, False):
+        raise ctx.todo("axis=1 with sort, ignore_index or verify_integrity: join on the label "
+                       "columns")
+    node = call.first_node("objs")
+    if not isinstance(node, (cst.List, cst.Tuple)) or len(node.elements) < 2:
+        raise ctx.todo("axis=1 of Series not written out as a list: join on the label columns")
+    pieces: list[Column] = []
+    for element in node.elements:
+        value = ctx.evaluate(element.value, {}) if isinstance(element, cst.Element) else None
+        if not isinstance(value, Column) or len(value.frame.index) != 1 \
+                or value.name is None or value.name in value.frame.index:
+            raise ctx.todo("axis=1 of values other than named Series labelled by one key "
+                           "lines them up by their row labels: join on the label columns")
+        pieces.append(value)
+    names = [p.name for p in pieces]
+    if len(set(names)) != len(names):
+        raise ctx.todo("two Series of one name side by side (Polars refuses the names)")
+    key_names = {None if p.frame.index_unnamed else p.frame.index[0] for p in pieces}
+    key_types = {p.frame.dtype(p.frame.index[0]) for p in pieces}
+    if len(key_types) != 1 or None in key_types or key_types & {"int", "float"} \
+            and any(p.frame.index_unnamed for p in pieces):
+        raise ctx.todo("labels of different or unknown types side by side: join on the label "
+                       "columns")
+    shared = key_names.pop() if len(key_names) == 1 else None
+    key = shared if shared is not None else ROW_LABELS_COLUMN
+    if key in names:
+        raise ctx.todo(f"a Series named {key!r} like the labels")
+    frames = []
+    for piece in pieces:
+        own = piece.frame.index[0]
+        code = handover.series_frame(piece)
+        if own != key:
+            code = code.method("rename", {own: key})
+        frames.append(code)
+    how = "full" if join == "outer" else "inner"
+    code = frames[0]
+    for other in frames[1:]:
+        kwargs: dict[str, object] = {"on": key, "how": how}
+        if how == "full":
+            kwargs["coalesce"] = True
+        code = code.method("join", other, **kwargs, nulls_equal=True, validate="1:1",
+                           maintain_order="left_right")
+    dtypes = {key: next(iter(key_types))}
+    ints = []
+    for piece in pieces:
+        if piece.dtype == "int" and how == "full":
+            ints.append(piece.name)
+        elif piece.dtype is not None:
+            dtypes[piece.name] = piece.dtype
+    if ints:
+        code = _float_where_missing(code, ints)
+    if any(p.dtype is None for p in pieces):
+        ctx.lower("a Series of a type porter does not know: pandas makes an int Series float "
+                  "where a label finds no value, Polars keeps its type", 0.95)
+    return Frame(code, columns=(key, *names), index=(key,), index_unnamed=shared is None,
+                 labels_intact=False, dtypes=tuple(dtypes.items()))
+
+
+# the key column of labels whose index pandas leaves unnamed (reset_index() names it "index")
+ROW_LABELS_COLUMN = "index"
+
+
 def _keyed_frames(frames: list[Frame], listed: Code | None, call: PandasCall,
                   ctx: RuleContext) -> list[Frame]:
     """pd.concat(frames, keys=[...], names=[outer, inner]): pandas labels each row with the key
@@ -856,9 +932,9 @@ def _keyed_frames(frames: list[Frame], listed: Code | None, call: PandasCall,
                        "per frame (with_columns(pl.lit(key))) before the concat")
     if not (isinstance(names, (list, tuple)) and len(names) == 2
             and all(isinstance(n, str) for n in names) and names[0] != names[1]):
-        raise ctx.todo("keys= without names= for both levels (pandas names them level_0, "
-                       "level_1 only where the index is put back): add a column per frame "
-                       "(with_columns(pl.lit(key))) before the concat")
+        raise ctx.todo("keys= without names= for both levels of the MultiIndex (pandas names "
+                       "them level_0, level_1 only where the index is put back): add a column "
+                       "per frame (with_columns(pl.lit(key))) before the concat")
     outer, inner = names
     keyed = []
     for frame, key in zip(frames, keys):
