@@ -597,3 +597,28 @@ df["i"] = df["trays"] % -2
 df.to_csv("out.csv", index=False)
 print(df["m"].tolist())
 """, tmp_path, {"kiln.csv": "hours,trays\n3.0,4\n6.0,5\n,6\n-1.5,-7\n0.0,0\n-3.0,2\n"})
+
+
+CLIP_FRAME = '''
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({
+    "owed": [1.5, np.nan, 5.0, 2.0, -1.0, 0.0],
+    "floor": [2, 3, np.nan, np.nan, 0, 1],
+    "cap": [1.0, 2.5, 4.0, np.nan, -3.0, np.inf],
+    "hours": [1, 2, 3, 4, 5, 6],
+})
+df["ratio"] = df["owed"] / df["hours"].where(df["hours"] > 3, 0)
+'''
+
+
+@pytest.mark.parametrize("body", [
+    'df["r"] = df["owed"].clip(lower=df["floor"])',  # a missing bound is no bound
+    'df["r"] = df["owed"].clip(upper=df["cap"])',
+    'df["r"] = df["owed"].clip(df["hours"])',  # an int column as the bound
+    'df["r"] = (df["owed"] * 2).clip(lower=df["ratio"])',  # NaN and inf in the bound
+    'df["r"] = df["owed"].clip(upper=df["ratio"]).round(2)',
+])
+def test_clip_with_a_bound_per_row_matches_pandas(body: str) -> None:
+    result = differential(CLIP_FRAME + body + "\nresult = df\n")
+    assert not [s for s in result.sites if s.status == "todo"], result.converted_text

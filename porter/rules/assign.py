@@ -29,7 +29,8 @@ from porter.rules.strings import LIST_STR, expanded_columns, list_repr
 from porter.translate.handover import (makes_periods, makes_python_ints, orders_categories,
                                        pandas_text, text_categories)
 from porter.translate.values import (
-    MISSING, NOT_NULLABLE, Column, Frame, Opaque, PandasValue, Parts, Scalar, Value, fresh_token,
+    MISSING, NOT_NULLABLE, Column, Frame, Indexed, Opaque, PandasValue, Parts, Scalar, Value,
+    fresh_token,
 )
 
 
@@ -637,12 +638,13 @@ def _set_several(frame: Frame, args: tuple[Value, ...], ctx: RuleContext) -> Fra
 
 @rule("frame.join")
 def join_parts(call: PandasCall, ctx: RuleContext) -> Value:
-    """df.join(df["c"].str.extract(pat)) -> with_columns of each named part.
+    """df.join(df["c"].str.extract(pat)) -> with_columns of each named part; df.join(other)
+    of two frames holding the same index keys -> LazyFrame.join on them (_join_on_index).
 
     The parts are made from the frame's own rows and carry its labels, so the join on the
     index pairs each row with its own parts whatever `how` and `sort` say, when the labels
     are 0..n-1 (unique).
-    Caveats: other frames (aligned on the index), parts of a frame whose labels are no longer
+    Caveats: other frames (aligned on row numbers or other keys), parts of a frame whose labels are no longer
     0..n-1, unnamed parts (labelled 0, 1, …), on= and parts named like a column (pandas raises
     without suffixes) are TODOs.
     """
@@ -653,6 +655,11 @@ def join_parts(call: PandasCall, ctx: RuleContext) -> Value:
     other = call.arg("other", 0)
     advice = ("DataFrame.join aligns on the index: make the index a column and use "
               "LazyFrame.join(on=...)")
+    if isinstance(other, Indexed) and not other.frame.index:
+        # other.set_index("k"): its frame, the key held as its index
+        other = replace(other.frame, index=(other.key,), index_unnamed=False)
+    if isinstance(other, Frame) and not call.has("on"):
+        return _join_on_index(frame, other, call, ctx, advice)
     if not isinstance(other, Parts) or call.has("on"):
         raise ctx.todo(advice)
     if not frame.labels_intact or frame.index:
@@ -672,6 +679,53 @@ def join_parts(call: PandasCall, ctx: RuleContext) -> Value:
     return set_nullable_ints(
         with_columns(frame, [(n, *value_expr(c, frame, ctx)) for n, c in zip(names, columns)]),
         {n: c.nullable_int or NOT_NULLABLE for n, c in zip(names, columns)})
+
+
+def _join_on_index(frame: Frame, other: Frame, call: PandasCall, ctx: RuleContext,
+                   advice: str) -> Value:
+    """df.join(other) of two frames holding the same index keys in columns (a groupby's keys,
+    set_index) -> LazyFrame.join on those keys, the left's rows in their order.
+
+    pandas aligns the rows on their labels: each left row with the right rows of its label (a
+    missing label matches a missing one, nulls_equal), in the left's order, then the right's;
+    the result keeps the left's index. An int column of the right frame is float64 in pandas
+    where a left row found no label (made Float64 once the join has run, as after a merge)."""
+    how = call.const("how", 2, "left", kinds=(str,))
+    if how not in ("left", "inner"):
+        raise ctx.todo(f"how={how!r}: " + advice)
+    if call.const("sort", 5, False) is not False or call.has("validate") \
+            or call.has("lsuffix") or call.has("rsuffix"):
+        raise ctx.todo("sort, validate or suffixes: " + advice)
+    keys = frame.index
+    if not keys or other.index != keys or frame.index_unnamed or other.index_unnamed:
+        raise ctx.todo("the frames do not hold the same named index keys: " + advice)
+    for key in keys:
+        kinds = (frame.dtype(key), other.dtype(key))
+        if None in kinds or kinds[0] != kinds[1]:
+            raise ctx.todo("index keys of different or unknown types (Polars joins only keys "
+                           "of one type): " + advice)
+    right_columns = None if other.columns is None else [c for c in other.columns if c not in keys]
+    columns = None
+    if frame.columns is not None and right_columns is not None:
+        if set(right_columns) & set(frame.columns):
+            raise ctx.todo("columns of both frames share a name (pandas raises without "
+                           "lsuffix/rsuffix)")
+        columns = (*frame.columns, *right_columns)
+    else:
+        ctx.lower("the columns of a frame are not known: pandas raises where both frames have "
+                  "a column of one name, Polars suffixes the right one", 0.95)
+    code = frame.code.method("join", other.code, on=emit.names_arg(keys), how=how,
+                             nulls_equal=True, maintain_order="left_right")
+    dtypes = {**dict(other.dtypes), **dict(frame.dtypes)}
+    ints = [c for c in right_columns or () if other.dtype(c) == "int"] if how == "left" else []
+    if ints:
+        code = code.method("collect").method("pipe", emit.atom(
+            f"lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in {emit.render(tuple(ints))} "
+            "if t[c].has_nulls()])")).method("lazy")
+        dtypes = {c: t for c, t in dtypes.items() if c not in ints}
+    return Frame(code, columns=columns, index=keys, labels_intact=False,
+                 dtypes=tuple(dtypes.items()) if columns is None
+                 else tuple((c, dtypes[c]) for c in columns if c in dtypes))
 
 
 @rule("frame.assign")

@@ -23,7 +23,7 @@ from porter.emit.code import Code
 from porter.model import SiteDraft
 from porter.rules import rule
 from porter.rules.legacy import modern_offset
-from porter.translate.context import MIXED_COLUMN, PandasCall, RuleContext
+from porter.translate.context import MIXED_COLUMN, ROW_LABELS, PandasCall, RuleContext
 from porter.translate import handover
 from porter.translate.values import Column, Frame, Opaque, PandasValue, Scalar, Value
 
@@ -351,11 +351,18 @@ def series(call: PandasCall, ctx: RuleContext) -> Value:
     is written "0", the label pandas' to_frame gives it).
     A dict or list written out whose values are computed at run time (`{"a": df["a"].sum()}`)
     is built by pandas from the values porter computes (a hand-over: its labels are the keys).
-    Caveats: index=, dtype= and other values computed at run time are TODOs.
+    index= of distinct texts: the labels in the key column "index", held as the Series' unnamed
+    index.
+    Caveats: other index=, dtype= and other values computed at run time are TODOs.
     """
     ctx.reject_unknown(call, "data", "name", "copy", "index", "dtype", positional=3)
-    if call.has("index", 1) or call.has("dtype", 2):
-        raise ctx.todo("index= and dtype= are not handled by porter yet")
+    if call.has("dtype", 2):
+        raise ctx.todo("dtype= is not handled by porter yet")
+    labels = call.const("index", 1, None) if call.has("index", 1) else None
+    if call.has("index", 1) and not (
+            isinstance(labels, (list, tuple)) and labels and all(isinstance(v, str) for v in labels)
+            and len(set(labels)) == len(labels)):
+        raise ctx.todo("index= other than distinct texts written out")
     data = call.arg("data", 0, None)
     name = call.const("name", None, None, kinds=(str,))
     if isinstance(data, Opaque) and not data.is_const and not ctx.inside_from_pandas \
@@ -372,6 +379,18 @@ def series(call: PandasCall, ctx: RuleContext) -> Value:
     label = name if name is not None else "0"
     kind, polars = column_type(label, values, ctx)
     options = {"schema_overrides": {label: emit.atom(polars)}} if polars else {}
+    if labels is not None:
+        # pandas' unnamed index of the texts given, held in the key column "index" (the name
+        # reset_index() gives it)
+        if len(labels) != len(values):
+            raise ctx.todo("index= of another length than the values (pandas raises)")
+        if label == ROW_LABELS:
+            raise ctx.todo('a Series named "index" beside its index')
+        frame = Frame(emit.pl("LazyFrame", {ROW_LABELS: list(labels), label: values}, **options),
+                      columns=(ROW_LABELS, label), index=(ROW_LABELS,), index_unnamed=True,
+                      labels_intact=False, grouped_rows=None,
+                      dtypes=((ROW_LABELS, "str"), *(((label, kind),) if kind else ())))
+        return Column(emit.col(label), frame=frame, name=name, dtype=kind, refs=frozenset({label}))
     frame = Frame(emit.pl("LazyFrame", {label: values}, **options), columns=(label,),
                   dtypes=((label, kind),) if kind else ())
     return Column(emit.col(label), frame=frame, name=name, dtype=kind, refs=frozenset({label}))

@@ -1464,9 +1464,12 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
         descending = not call.const("ascending", None, False)
         kwargs: dict[str, object] = {"descending": True} if descending else {}
         counts = counts.method("sort", result_name, **kwargs, maintain_order=True)
+    # the counts are int64, the proportions float64
+    kind = "float" if result_name == "proportion" else "int"
     result = Frame(counts, columns=(name, result_name), index=(name,), labels_intact=False,
-                   dtypes=((name, column.dtype),) if column.dtype is not None else ())
-    return Column(emit.col(result_name), frame=result, name=result_name, dtype="int",
+                   dtypes=(((name, column.dtype),) if column.dtype is not None else ())
+                   + ((result_name, kind),))
+    return Column(emit.col(result_name), frame=result, name=result_name, dtype=kind,
                   refs=frozenset({result_name}))
 
 

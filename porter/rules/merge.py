@@ -16,6 +16,7 @@ import libcst as cst
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
+from porter.translate import handover
 from porter.translate.context import PandasCall, RuleContext, Unsupported, nullable_mark
 from porter.translate.values import NOT_NULLABLE, Column, Frame, FrameList, Opaque, Scalar, Value
 
@@ -218,14 +219,7 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
             dtypes[indicator] = "enum"
     ints = [c for c, _ in float_ints if columns is not None and c in columns]
     if ints:
-        # pandas' type is known once the join has run: float64 where it left a value missing,
-        # int64 where every row found its match. The joined table gives each such column the
-        # type pandas gives it, so what follows (fillna, astype(str), sums, to_csv) reads it
-        # as pandas does; porter cannot tell which, so it knows no type for them
-        names = emit.render(tuple(ints))
-        code = code.method("collect").method("pipe", emit.atom(
-            f"lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in {names} "
-            "if t[c].has_nulls()])")).method("lazy")
+        code = _float_where_missing(code, ints)
         float_ints = tuple(m for m in float_ints if m[0] not in ints)
         dtypes = {c: t for c, t in dtypes.items() if c not in ints}
     marks: dict[str, Any] = {}
@@ -239,6 +233,18 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
 
 
 _SIDE_MARKS = ("_in_left", "_in_right")
+
+
+def _float_where_missing(code: Code, ints: Sequence[str]) -> Code:
+    """The joined table with each int column of `ints` made Float64 where the join left it a
+    missing value. pandas' type is known once the join has run: float64 where it left a value
+    missing, int64 where every row found its match. The joined table gives each such column the
+    type pandas gives it, so what follows (fillna, astype(str), sums, to_csv, a row read as a
+    Series) reads it as pandas does; porter cannot tell which, so it knows no type for them."""
+    names = emit.render(tuple(ints))
+    return code.method("collect").method("pipe", emit.atom(
+        f"lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in {names} "
+        "if t[c].has_nulls()])")).method("lazy")
 
 
 def _nullable_marks(frames: tuple[Frame, Frame], before: tuple[_Side, _Side],
@@ -554,8 +560,9 @@ def merge_asof(call: PandasCall, ctx: RuleContext) -> Value:
     two names keep the right one, in the right frame's order); suffixes on both sides for the
     other columns both frames have; an int key against a float one.
     Caveats: a missing `by` value matches a missing one
-    in pandas and nothing in Polars (0.95); an int column of the right frame with an unmatched
-    row stays an integer column with missing values (float in pandas), as for merge.
+    in pandas and nothing in Polars (0.95). An int column of the right frame is made Float64
+    once the join has run where a left row found no match, as pandas makes it float64 (as for
+    merge).
     """
     args = _named(call, ASOF_PARAMS)
     left, right = args.arg("left"), args.arg("right")
@@ -638,7 +645,21 @@ def merge_asof(call: PandasCall, ctx: RuleContext) -> Value:
         columns = (*lside.columns,
                    *(c for c in rside.columns if not (c in once and c in rside.keys)))
     dtypes = {**rside.dtypes, **lside.dtypes} if columns is not None else {}
-    return Frame(code, columns=columns, labels_intact=True,
+    # a left row that finds no right row (or none within the tolerance) gives the right's
+    # columns missing values: pandas then holds an int column as float64, as after a merge
+    # (pandas' nullable integers stay integers)
+    nullable = dict(right.nullable_ints or ())
+    ints = [c for c, t in rside.dtypes.items() if t == "int" and columns is not None
+            and c in columns and c not in lside.columns and not (c in once and c in rside.keys)
+            and not nullable.get(c)]
+    float_ints: tuple[tuple[str, str], ...] = ()
+    if ints:
+        code = _float_where_missing(code, ints)
+        dtypes = {c: t for c, t in dtypes.items() if c not in ints}
+    elif columns is None:
+        float_ints = tuple((c, "merge_asof left a row unmatched") for c, t in rside.dtypes.items()
+                           if t == "int" and c not in once)
+    return Frame(code, columns=columns, labels_intact=True, float_ints=float_ints,
                  dtypes=tuple((c, dtypes[c]) for c in columns or () if c in dtypes))
 
 
@@ -762,14 +783,20 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
     missing there (an int column becomes float64 in pandas, even when that frame has no rows:
     cast to Float64), int and float columns take the common type (C01); join="inner" and
     sort=True when the columns are known; ignore_index=True gives fresh labels (C02).
-    Caveats: axis=1, keys=, Series and frames porter does not track are TODOs.
+    keys=[...] with names=[outer, inner]: each piece, labelled 0..n-1, given its key and its
+    row numbers as index columns (_keyed_frames).
+    Caveats: axis=1, other keys=, Series and frames porter does not track are TODOs.
     """
-    if call.has("keys") or call.has("levels") or call.has("names"):
+    keyed = call.has("keys") or call.has("levels") or call.has("names")
+    if keyed and (call.has("levels") or call.const("ignore_index", None, False)
+                  or call.const("axis", None, 0) not in (0, "index", "rows")):
         raise ctx.todo("keys= labels each piece in a MultiIndex: add a column per frame "
                        "(with_columns(pl.lit(key))) before the concat")
     ctx.reject_unknown(call, "objs", "axis", "join", "ignore_index", "sort", "copy",
-                       "verify_integrity", positional=1)
+                       "verify_integrity", "keys", "names", positional=1)
     axis = call.const("axis", None, 0)
+    if axis in (1, "columns") and not keyed:
+        return _side_by_side(call, ctx)
     if axis in (1, "columns"):
         raise ctx.todo("axis=1 lines frames up by their row labels (an outer join of the "
                        "indexes), not by position: join on a label column, or use "
@@ -783,6 +810,8 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo(f"join={join!r}")
     ignore_index = bool(call.const("ignore_index", None, False))
     frames, listed = _listed_frames(call, ctx)
+    if keyed:
+        frames = _keyed_frames(frames, listed, call, ctx)
     index = frames[0].index
     if ignore_index:  # pandas drops the labels; porter's index columns go with them
         frames = [_drop_index(f) for f in frames]
@@ -814,6 +843,114 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
     return Frame(code, columns=columns, dtypes=dtypes, index=index,
                  labels_intact=ignore_index or len(frames) == 1 and frames[0].labels_intact,
                  sites=tuple(s for f in frames for s in f.sites), **marks)
+
+
+def _side_by_side(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.concat([s1, s2, ...], axis=1) of Series each labelled by one key (a groupby's,
+    value_counts', a Series written with index=) -> a full join of them on their labels.
+
+    pandas lines them up on their labels: the union of the labels in the order they are first
+    met (join="outer"; "inner": the labels of all, in the first's order), a missing label
+    matching a missing one; a label repeated in one of them makes pandas raise (validate="1:1"
+    raises too). The index is named when every Series' index has that name. An int Series is
+    float64 where a label found no value (made Float64 once the join has run)."""
+    join = call.const("join", None, "outer")
+    if join not in ("outer", "inner") or call.const("sort", None, False) \
+            or call.const("ignore_index", None, False) or call.const("verify_integrity", None, False):
+        raise ctx.todo("axis=1 with sort, ignore_index or verify_integrity: join on the label "
+                       "columns")
+    node = call.first_node("objs")
+    if not isinstance(node, (cst.List, cst.Tuple)) or len(node.elements) < 2:
+        raise ctx.todo("axis=1 of Series not written out as a list: join on the label columns")
+    pieces: list[Column] = []
+    for element in node.elements:
+        value = ctx.evaluate(element.value, {}) if isinstance(element, cst.Element) else None
+        if not isinstance(value, Column) or len(value.frame.index) != 1 \
+                or value.name is None or value.name in value.frame.index:
+            raise ctx.todo("axis=1 of values other than named Series labelled by one key "
+                           "lines them up by their row labels: join on the label columns")
+        pieces.append(value)
+    names = [p.name for p in pieces]
+    if len(set(names)) != len(names):
+        raise ctx.todo("two Series of one name side by side (Polars refuses the names)")
+    key_names = {None if p.frame.index_unnamed else p.frame.index[0] for p in pieces}
+    key_types = {p.frame.dtype(p.frame.index[0]) for p in pieces}
+    if len(key_types) != 1 or None in key_types or key_types & {"int", "float"} \
+            and any(p.frame.index_unnamed for p in pieces):
+        raise ctx.todo("labels of different or unknown types side by side: join on the label "
+                       "columns")
+    shared = key_names.pop() if len(key_names) == 1 else None
+    key = shared if shared is not None else ROW_LABELS_COLUMN
+    if key in names:
+        raise ctx.todo(f"a Series named {key!r} like the labels")
+    frames = []
+    for piece in pieces:
+        own = piece.frame.index[0]
+        code = handover.series_frame(piece)
+        if own != key:
+            code = code.method("rename", {own: key})
+        frames.append(code)
+    how = "full" if join == "outer" else "inner"
+    code = frames[0]
+    for other in frames[1:]:
+        kwargs: dict[str, object] = {"on": key, "how": how}
+        if how == "full":
+            kwargs["coalesce"] = True
+        code = code.method("join", other, **kwargs, nulls_equal=True, validate="1:1",
+                           maintain_order="left_right")
+    dtypes = {key: next(iter(key_types))}
+    ints = []
+    for piece in pieces:
+        if piece.dtype == "int" and how == "full":
+            ints.append(piece.name)
+        elif piece.dtype is not None:
+            dtypes[piece.name] = piece.dtype
+    if ints:
+        code = _float_where_missing(code, ints)
+    if any(p.dtype is None for p in pieces):
+        ctx.lower("a Series of a type porter does not know: pandas makes an int Series float "
+                  "where a label finds no value, Polars keeps its type", 0.95)
+    return Frame(code, columns=(key, *names), index=(key,), index_unnamed=shared is None,
+                 labels_intact=False, dtypes=tuple(dtypes.items()))
+
+
+# the key column of labels whose index pandas leaves unnamed (reset_index() names it "index")
+ROW_LABELS_COLUMN = "index"
+
+
+def _keyed_frames(frames: list[Frame], listed: Code | None, call: PandasCall,
+                  ctx: RuleContext) -> list[Frame]:
+    """pd.concat(frames, keys=[...], names=[outer, inner]): pandas labels each row with the key
+    of its piece and its own label there, a two-level index named `names`. Each piece, still
+    labelled 0..n-1, is given both as index columns (the key, its row number), so that
+    reset_index() puts them first, as pandas does."""
+    keys = call.const("keys", None, None)
+    names = call.const("names", None, None)
+    if listed is not None or not (isinstance(keys, (list, tuple)) and len(keys) == len(frames)
+                                  and all(isinstance(k, str) for k in keys)):
+        raise ctx.todo("keys= other than one text per frame written in the list: add a column "
+                       "per frame (with_columns(pl.lit(key))) before the concat")
+    if not (isinstance(names, (list, tuple)) and len(names) == 2
+            and all(isinstance(n, str) for n in names) and names[0] != names[1]):
+        raise ctx.todo("keys= without names= for both levels of the MultiIndex (pandas names "
+                       "them level_0, level_1 only where the index is put back): add a column "
+                       "per frame (with_columns(pl.lit(key))) before the concat")
+    outer, inner = names
+    keyed = []
+    for frame, key in zip(frames, keys):
+        if frame.index or not frame.labels_intact:
+            raise ctx.todo("a piece whose row labels are no longer 0..n-1 (or that keeps an "
+                           "index): its labels are the inner level")
+        if frame.columns is None or {outer, inner} & set(frame.columns):
+            raise ctx.todo("a piece whose columns porter does not know, or with a column named "
+                           "like a level")
+        code = frame.code.method("select", emit.pl("lit", key).method("alias", outer),
+                                 emit.pl("int_range", emit.pl("len"), dtype=emit.atom("pl.Int64"))
+                                 .method("alias", inner), emit.pl("all"))
+        keyed.append(replace(frame, code=code, columns=(outer, inner, *frame.columns),
+                             dtypes=((outer, "str"), (inner, "int"), *frame.dtypes),
+                             index=(outer, inner), labels_intact=False))
+    return keyed
 
 
 def _concat_nullable(frames: list[Frame], columns: tuple[str, ...] | None

@@ -1032,11 +1032,32 @@ def clip(call: PandasCall, ctx: RuleContext) -> Value:
                   "float bound as an integer column's type (a cap of 3.7 gives 3 where pandas "
                   "gives 3.7)", 0.9)
     if any(isinstance(b, Column) for b in bounds):
-        raise Unsupported("bounds given per row")
+        return _clip_per_row(column, code, dtype, lower, upper, ctx)
     args = [ctx.expr(b, column.frame) if b is not None else None for b in (lower, upper)]
     if lower is not None and upper is not None:
         args = _ordered_bounds(lower, upper, column, ctx)
     return derived_column(column, code.method("clip", *args), dtype=dtype)
+
+
+def _clip_per_row(column: Column, code: Code, dtype: str | None, lower: Value | None,
+                  upper: Value | None, ctx: RuleContext) -> Value:
+    """s.clip(lower=df["m"]) of a float column, one bound a column of the same rows -> clip
+    with that column as the bound, as a Float64 whose NaN is missing: pandas takes a missing
+    (NaN) bound on a row for no bound there, as Polars takes a null one."""
+    if dtype != "float" or lower is not None and upper is not None:
+        raise Unsupported("bounds given per row of a column that is not known to be float, or "
+                          "both bounds given")
+    bound = lower if lower is not None else upper
+    assert isinstance(bound, Column)
+    if bound.dtype not in ("int", "float", None) or bound.frame.rows != column.frame.rows:
+        raise Unsupported("bounds given per row: of another frame or of a type that is not a "
+                          "number")
+    if bound.dtype is None:
+        ctx.lower("a bound column of a type porter does not know is taken as numbers", 0.95)
+    per_row = ctx.expr(bound, column.frame).method("cast", emit.atom("pl.Float64")).method(
+        "fill_nan", None)
+    side = "lower_bound" if lower is not None else "upper_bound"
+    return derived_column(column, code.method("clip", **{side: per_row}), dtype="float")
 
 
 def _as_int(value: Value | None, no_bound: float) -> Value | None:

@@ -7,6 +7,7 @@ import ast
 import functools
 import re
 from dataclasses import dataclass, field, replace
+from typing import TYPE_CHECKING
 
 import libcst as cst
 
@@ -14,10 +15,13 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import (
-    PandasCall, RuleContext, Unsupported, column_names, column_of, derive, nullable_columns,
-    row_labels_carried, select_columns, values_fixed,
+    ROW_LABELS, PandasCall, RuleContext, Unsupported, column_names, column_of, derive,
+    nullable_columns, row_labels_carried, select_columns, values_fixed, with_row_labels,
 )
 from porter.translate.handover import series_frame, to_pandas
+
+if TYPE_CHECKING:
+    from porter.rules.groupby import RowPosition
 from porter.translate.values import (
     Accessor, Column, Frame, Module, Opaque, PandasValue, Parts, Scalar, Value,
 )
@@ -325,6 +329,8 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
             raise Unsupported("a value of a column whose type porter does not know")
         return scalar_of(column, column.code.method("get", rows.position),
                          column.dtype if column.dtype in ("int", "float") else None)
+    if isinstance(rows, RowPosition) and rows.current_in(frame) and cols is None:
+        return _row_at(frame, rows, ctx)
     if isinstance(rows, ExtremeLabels) and rows.source.rows == frame.rows \
             and (frame.labels_intact and not frame.index or row_labels_carried(frame)):
         # df.loc[df.groupby(k)["c"].idxmin()]: each group's row of its first smallest value,
@@ -354,6 +360,26 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(cols, Opaque) and isinstance(cols.const, slice):
         return _column_label_slice(frame, cols.const)
     raise Unsupported("columns chosen by something other than names")
+
+
+def _row_at(frame: Frame, row: "RowPosition", ctx: RuleContext) -> Value:
+    """df.loc[df["c"].idxmax()] of the frame the label was read from: that one row, picked in
+    Polars (pl.all().get(position)), handed to pandas with its label (the row number, a label a
+    filter or sort left, or the groupby key) as the one-row frame's index, and taken as pandas'
+    row Series (.iloc[0]): its values typed as pandas types a row of that frame, named by its
+    label, and read as pandas' Series by the code after it."""
+    if not frame.index and frame.labels_intact:
+        if frame.columns is None or ROW_LABELS in frame.columns:
+            raise Unsupported("a row of a frame whose columns porter does not know")
+        frame = with_row_labels(frame)  # the label of a row is its number
+    elif not frame.index:
+        raise Unsupported("rows chosen by index label: the index is not data in Polars")
+    picked = replace(frame, code=frame.code.method("select", emit.pl("all").method("get", row.position)))
+    ctx.handover = True
+    chain = to_pandas(picked)
+    if chain.base is not None and chain.steps:  # laid out one step per line, .iloc[0] the last
+        return PandasValue(Code(f"{chain.text}.iloc[0]", emit.ATOM, chain.base, (*chain.steps, ".iloc[0]")))
+    return PandasValue(chain.attr("iloc").index(0))
 
 
 def _column_label_slice(frame: Frame, piece: slice) -> Frame:

@@ -1334,6 +1334,11 @@ class _Walker:
             result = self.set_columns(stmt, several, env, evaluator, indent)
             if result is not None:
                 return result
+        split = _columns_changed_alike(stmt)
+        if split is not None:
+            result = self.set_columns_alike(stmt, *split, env, evaluator, indent)
+            if result is not None:
+                return result
         if len(targets) == 1:
             target = targets[0]
             if isinstance(target, cst.Name) and isinstance(stmt, cst.Assign):
@@ -1397,6 +1402,26 @@ class _Walker:
             args += [evaluator.eval(_index_of(target)), value]
         call = PandasCall(frame, "setitem", tuple(args), node=targets[0])
         result = evaluator.dispatch("frame.setitem", call, stmt)
+        return self.bind_changed(owner.value, frame, result, env, indent)
+
+    def set_columns_alike(self, stmt: cst.Assign, owner: cst.Name, names: list[str],
+                          values: list[cst.BaseExpression], env: dict[str, Value],
+                          evaluator: Evaluator, indent: str) -> tuple[str | None, list[SiteDraft]] | None:
+        """`df[["a", "b"]] = df[["a", "b"]].fillna(0)`: a method that works column by column,
+        with constant arguments, gives each column what the same method gives that column
+        alone (`df["a"].fillna(0)`): set in one step, as `df["a"], df["b"] = ...` (the frame's
+        method on a frame porter knows less of was a TODO keeping the frame on pandas)."""
+        frame = evaluator.eval(owner)
+        if not isinstance(frame, Frame) or frame.columns is None \
+                or not set(names) <= set(frame.columns) or set(names) & set(frame.index):
+            return None
+        args: list[Value] = []
+        for name, node in zip(names, values):
+            args += [Opaque(emit.atom(emit.render(name)), const=name), evaluator.eval(node)]
+        call = PandasCall(frame, "setitem", tuple(args), node=stmt.targets[0].target)
+        result = evaluator.dispatch("frame.setitem", call, stmt)
+        if any(site.status == "todo" for site in result.sites):
+            return None
         return self.bind_changed(owner.value, frame, result, env, indent)
 
     def unpack(self, target: cst.Tuple | cst.List, node: cst.BaseExpression, env: dict[str, Value],
@@ -1632,7 +1657,10 @@ class _Walker:
         frame = env[frames[0]]
         assert isinstance(frame, Frame)
         if not frame.labels_intact or frame.index or frame.columns is None \
-                or "index" in frame.columns or frame.nullable_ints is None:
+                or "index" in frame.columns \
+                or frame.nullable_ints is None and self.services.nullable_ints_possible:
+            # (which columns are pandas' nullable ints is unknown only where the script can
+            # make them at all)
             return None
         labelled = with_row_labels(frame)
         result = Evaluator({**env, frames[0]: labelled}, self.services).eval(expr)
@@ -2329,6 +2357,65 @@ def _root_and_path(node: cst.BaseExpression) -> tuple[str | None, str]:
     if not isinstance(node, cst.Name):
         return None, ""
     return node.value, ".".join(reversed(path)) or "setitem"
+
+
+# frame methods that work column by column: with constant arguments, each column of the result
+# is what the Series method gives that column alone
+_COLUMNWISE = frozenset({"fillna", "round", "abs", "clip", "astype"})
+
+
+def _columns_changed_alike(stmt: cst.BaseSmallStatement
+                           ) -> tuple[cst.Name, list[str], list[cst.BaseExpression]] | None:
+    """`df[["a", "b"]] = df[["a", "b"]].fillna(0)` (the same names on both sides, a method of
+    _COLUMNWISE whose arguments are constants): the frame's name, the columns, and per column
+    the expression `df["a"].fillna(0)`; None for any other statement."""
+    if not isinstance(stmt, cst.Assign) or len(stmt.targets) != 1:
+        return None
+    target, value = stmt.targets[0].target, stmt.value
+    names = _listed_names(target)
+    if names is None or not isinstance(value, cst.Call) \
+            or not isinstance(value.func, cst.Attribute) \
+            or value.func.attr.value not in _COLUMNWISE:
+        return None
+    source = value.func.value
+    assert isinstance(target, cst.Subscript)
+    if _listed_names(source) != names or not isinstance(source, cst.Subscript) \
+            or not source.value.deep_equals(target.value):
+        return None
+    for arg in value.args:
+        if arg.star or arg.keyword is not None and arg.keyword.value == "inplace":
+            return None
+        if isinstance(arg.value, cst.Name) and arg.value.value in ("str", "int", "float", "bool"):
+            continue  # astype(str): a type, the same for each column
+        try:
+            constant = ast.literal_eval(cst.Module([]).code_for_node(arg.value))
+        except (ValueError, SyntaxError, TypeError):
+            return None
+        if isinstance(constant, (dict, list, tuple, set)):
+            return None  # per-column values (a dict) or bounds: not the same for each column
+    owner = target.value
+    assert isinstance(owner, cst.Name)
+    values: list[cst.BaseExpression] = [
+        value.with_changes(func=value.func.with_changes(value=cst.Subscript(
+            value=owner, slice=[cst.SubscriptElement(cst.Index(cst.SimpleString(emit.render(n))))])))
+        for n in names]
+    return owner, names, values
+
+
+def _listed_names(node: cst.BaseExpression) -> list[str] | None:
+    """The names of `df[["a", "b"]]` (two or more distinct text literals) or None."""
+    if not (isinstance(node, cst.Subscript) and isinstance(node.value, cst.Name)
+            and len(node.slice) == 1 and isinstance(node.slice[0].slice, cst.Index)
+            and isinstance(node.slice[0].slice.value, cst.List)):
+        return None
+    names = []
+    for element in node.slice[0].slice.value.elements:
+        if not isinstance(element.value, cst.SimpleString):
+            return None
+        names.append(element.value.evaluated_value)
+    if len(names) < 2 or len(set(names)) != len(names) or not all(isinstance(n, str) for n in names):
+        return None
+    return names
 
 
 def _column_targets(stmt: cst.BaseSmallStatement) -> list[cst.Subscript] | None:
