@@ -81,3 +81,274 @@ def modern_period(freq: object) -> str | None:
     if not isinstance(freq, str):
         return None
     return _modern(freq, PERIOD_ALIASES, period_accepted)
+
+
+# -- calls pandas 2 and 3 removed, read as their modern spelling --------------------------------
+#
+# The meanings below are from memory of pandas' release notes (not looked up here): each rule
+# says which release removed the call and what it became. The rules rewrite the call into its
+# modern spelling and hand it to the rule of that spelling, so everything those rules know
+# (missing values, tied rows, dtypes) holds for the old name too.
+
+from porter.emit import code as emit  # noqa: E402
+from porter.rules import registry, rule  # noqa: E402
+from porter.translate.context import PandasCall, RuleContext, Unsupported  # noqa: E402
+from porter.translate.values import Column, Frame, Opaque, Value  # noqa: E402
+
+
+def _const(value: object) -> Opaque:
+    return Opaque(emit.lit(value), const=value)
+
+
+def _modern(key: str, call: PandasCall, ctx: RuleContext) -> Value:
+    """Run the rule of today's spelling on the rewritten call."""
+    return registry()[key](call, ctx)
+
+
+# read_csv's options that pandas 2 removed: (from memory) squeeze= deprecated in 1.4 and removed
+# in 2.0 (DataFrame.squeeze("columns") instead); error_bad_lines= / warn_bad_lines= deprecated in
+# 1.3 for on_bad_lines= and removed in 2.0; delim_whitespace= deprecated in 2.2 for sep=r"\s+" and
+# removed in 3.0; infer_datetime_format= deprecated in 2.0 (the format is always guessed from the
+# first value since then) and removed in 3.0.
+READ_CSV_LEGACY = ("squeeze", "error_bad_lines", "warn_bad_lines", "delim_whitespace",
+                   "infer_datetime_format")
+
+
+def modern_read_csv(call: PandasCall, ctx: RuleContext) -> tuple[PandasCall, bool, str]:
+    """read_csv's removed options rewritten as pandas 3.1 spells them; whether squeeze=True
+    asked for a one-column read to be a Series; what was rewritten (for a TODO's reason)."""
+    if not set(READ_CSV_LEGACY) & set(call.kwargs):
+        return call, False, ""
+    notes = []
+    kwargs = dict(call.kwargs)
+    squeeze = bool(call.const("squeeze", None, False, kinds=(bool,)))
+    errors = call.const("error_bad_lines", None, None, kinds=(bool, type(None)))
+    warns = call.const("warn_bad_lines", None, None, kinds=(bool, type(None)))
+    spaces = call.const("delim_whitespace", None, False, kinds=(bool,))
+    call.const("infer_datetime_format", None, False, kinds=(bool,))
+    for name in READ_CSV_LEGACY:
+        kwargs.pop(name, None)
+    if errors is False:
+        # pandas 1.x: error_bad_lines=False left out a row with too many fields, and said so
+        # on stderr unless warn_bad_lines=False: on_bad_lines="warn" / "skip"
+        if "on_bad_lines" in kwargs:
+            raise Unsupported("error_bad_lines= beside on_bad_lines= (pandas raised)")
+        kwargs["on_bad_lines"] = _const("skip" if warns is False else "warn")
+        notes.append(f"error_bad_lines=False is on_bad_lines={kwargs['on_bad_lines'].const!r}")
+    # error_bad_lines=True was the default (a bad row stops the read); warn_bad_lines without
+    # error_bad_lines=False changed nothing
+    if spaces:
+        if {"sep", "delimiter"} & set(kwargs) or len(call.args) > 1:
+            raise Unsupported("delim_whitespace=True beside sep= (pandas raised)")
+        kwargs["sep"] = _const(r"\s+")
+        notes.append('delim_whitespace=True is sep=r"\\s+"')
+    # infer_datetime_format=True only made pandas 1.x parse faster: the dates are the same as
+    # those of pandas 2's guessed format, which parse_dates reads as before
+    return (PandasCall(call.receiver, call.name, call.args, kwargs, call.node), squeeze,
+            "; ".join(notes))
+
+
+def squeezed(read: Value, ctx: RuleContext) -> Value:
+    """read_csv(..., squeeze=True): a file of one column read as that column (a Series), as
+    pandas 1.x returned it; a file of several columns stays a frame."""
+    if not isinstance(read, Frame) or read.columns is None:
+        raise Unsupported("squeeze=True (removed in pandas 2): the read is a Series when the file "
+                          "has one column; porter does not know its columns here (give usecols= "
+                          "or run with --data)")
+    if len(read.columns) != 1:
+        return read
+    name = read.columns[0]
+    return _modern("frame.getitem.column", PandasCall(read, "getitem", (_const(name),)), ctx)
+
+
+def _column_named(frame: Frame, name: str, ctx: RuleContext) -> Value:
+    return _modern("frame.getitem.column", PandasCall(frame, "getitem", (_const(name),)), ctx)
+
+
+def _default_labels(frame: Frame) -> bool:
+    """pandas' row labels are still 0..n-1 in order (a label is then the row's position)."""
+    return frame.labels_intact and not frame.index
+
+
+def _names(value: Value) -> list[str] | None:
+    """Column names written in the script: one text or a list of texts."""
+    if isinstance(value, Opaque) and value.is_const:
+        if isinstance(value.const, str):
+            return [value.const]
+        if isinstance(value.const, (list, tuple)) and value.const \
+                and all(isinstance(n, str) for n in value.const):
+            return list(value.const)
+    return None
+
+
+@rule("frame.ix")
+def ix(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.ix[rows, cols] -> as df.loc[rows, cols] where .ix read labels: every row (:) or a
+    True/False mask for the rows, column names written as text.
+
+    .ix (from memory: deprecated in pandas 0.20, removed in 1.0) read a key as a label where
+    the axis had such a label, and as a position otherwise (a whole number on an axis of text
+    labels). A mask, `:` and names of columns written as text can only be labels, so the read
+    is .loc's. df.ix[i, "c"] on a frame whose labels are still pandas' 0..n-1 (read, not
+    filtered, sorted or indexed since) is the value at label i, the row at position i.
+    Other whole numbers or slices of them for the rows (a label of an integer index, a
+    position otherwise: porter does not model the index) and a number for the columns (the
+    columns' own labels are text: a position) are TODOs, which say to write .loc or .iloc.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    rows = call.args[0] if call.args else None
+    cols = call.args[1] if len(call.args) > 1 else None
+    if len(call.args) > 2 or rows is None:
+        raise Unsupported(".ix with more than two keys")
+    label = rows.const if isinstance(rows, Opaque) and rows.is_const else None
+    if isinstance(label, int) and not isinstance(label, bool) and label >= 0 \
+            and isinstance(cols, Opaque) and isinstance(cols.const, str) and _default_labels(frame):
+        # one value: on pandas' integer labels 0..n-1 a whole number was a label (.ix read
+        # labels on an integer index), which is the row's position here
+        column = _column_named(frame, cols.const, ctx)
+        return _modern("series.iloc", PandasCall(column, "iloc", (rows,), {}, call.node), ctx)
+    every_row = isinstance(rows, Opaque) and rows.is_const and rows.const == slice(None)
+    mask = isinstance(rows, Column) and rows.dtype == "bool"
+    if not (every_row or mask):
+        raise Unsupported(".ix[rows] with rows other than `:` or a True/False mask: .ix read a "
+                          "whole number as a label of an integer index and as a position "
+                          "otherwise, which porter cannot tell; write .loc (labels) or .iloc "
+                          "(positions)")
+    if cols is not None and not (isinstance(cols, Opaque) and cols.is_const
+                                 and cols.const == slice(None)) and _names(cols) is None:
+        raise Unsupported(".ix[:, cols] with columns other than names written as text (a "
+                          "number was a position where the columns are named by text, a label "
+                          "otherwise); write .loc or .iloc")
+    return _modern("frame.loc", PandasCall(frame, "loc", call.args, {}, call.node), ctx)
+
+
+@rule("frame.as_matrix")
+def as_matrix(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.as_matrix(columns=None) -> as df[columns].to_numpy() (collected to numpy).
+
+    as_matrix (from memory: deprecated in pandas 0.23 for .values / to_numpy(), removed in
+    1.0) gave the frame's values as one numpy array, of the columns given in their order:
+    the array to_numpy() gives (missing numbers nan, text in an object array).
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "columns", positional=1)
+    if call.has("columns", 0):
+        given = call.arg("columns", 0)
+        if not (isinstance(given, Opaque) and given.is_const and given.const is None):
+            names = _names(given)
+            if names is None or isinstance(given.const, str):  # type: ignore[union-attr]
+                raise Unsupported("as_matrix(columns=) with something other than a list of "
+                                  "column names")
+            frame = _modern("frame.getitem.columns",  # type: ignore[assignment]
+                            PandasCall(frame, "getitem", (given,)), ctx)
+    return _modern("frame.to_numpy", PandasCall(frame, "to_numpy", (), {}, call.node), ctx)
+
+
+@rule("frame.get_value")
+def get_value(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.get_value(label, col) -> as df.at[label, col]: on a frame whose row labels are still
+    0..n-1, the value at that position (as s.iloc[i]).
+
+    get_value (from memory: deprecated in pandas 0.21 for .at / .iat, removed in 1.0) read one
+    value by row label and column name. A frame read from a file and not yet filtered or sorted
+    has the labels 0..n-1, so the label is the position; other labels are a TODO.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "index", "col", "takeable", positional=2)
+    label = call.const("index", 0, kinds=(int,))
+    name = call.const("col", 1, kinds=(str,))
+    if call.const("takeable", None, False, kinds=(bool,)):
+        raise Unsupported("get_value(takeable=True) (positions): write .iat")
+    if not _default_labels(frame):
+        raise Unsupported("get_value(label, col) on a frame filtered, sorted or indexed since it "
+                          "was made: its labels are pandas' (write .at[label, col])")
+    if label < 0:
+        raise Unsupported("get_value with a negative label (pandas raises: no such label)")
+    column = _column_named(frame, name, ctx)
+    return _modern("series.iloc", PandasCall(column, "iloc", (_const(label),), {}, call.node), ctx)
+
+
+@rule("series.valid")
+def valid(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.valid() -> as s.dropna() (the column's rows holding a value).
+
+    Series.valid (from memory: deprecated in pandas 0.23, removed in 1.0) was dropna() under
+    another name.
+    """
+    ctx.reject_unknown(call)
+    return _modern("series.dropna", PandasCall(call.receiver, "dropna", (), {}, call.node), ctx)
+
+
+@rule("series.order")
+def order(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.order(ascending, na_position, kind) -> as s.sort_values(..., kind="mergesort").
+
+    Series.order (from memory: deprecated in pandas 0.17 for sort_values, removed in 0.20)
+    sorted a copy, missing values last, with a stable sort (kind="mergesort") unless told
+    otherwise: tied values keep their order.
+    """
+    ctx.reject_unknown(call, "ascending", "na_position", "kind")
+    kwargs = dict(call.kwargs)
+    kwargs.setdefault("kind", _const("mergesort"))
+    return _modern("series.sort_values",
+                   PandasCall(call.receiver, "sort_values", (), kwargs, call.node), ctx)
+
+
+@rule("frame.sort")
+def frame_sort(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.sort(columns, ascending, kind, na_position) -> as df.sort_values(by=columns, ...).
+
+    DataFrame.sort (from memory: deprecated in pandas 0.17, removed in 0.20) sorted by the
+    columns given (by the index without them), missing values last, with an unstable
+    quicksort unless told otherwise: sort_values' defaults.
+    Caveats: without columns it sorted by the index: a TODO.
+    """
+    ctx.reject_unknown(call, "columns", "ascending", "kind", "na_position", positional=1)
+    if not call.has("columns", 0):
+        raise Unsupported("sort() without columns sorted by the index: write sort_index()")
+    kwargs = {k: v for k, v in call.kwargs.items() if k != "columns"}
+    kwargs["by"] = call.arg("columns", 0)
+    return _modern("frame.sort_values",
+                   PandasCall(call.receiver, "sort_values", (), kwargs, call.node), ctx)
+
+
+# pd.rolling_mean(s, n) and its kin: pandas' functions of a window before the .rolling() /
+# .expanding() methods (from memory: deprecated in 0.18, removed in 0.23)
+ROLLING_FUNCTIONS = {f"pd.rolling_{how}": how
+                     for how in ("mean", "sum", "min", "max", "median", "std", "var")}
+EXPANDING_FUNCTIONS = {f"pd.expanding_{how}": how
+                       for how in ("mean", "sum", "min", "max", "std", "var")}
+
+
+@rule(*ROLLING_FUNCTIONS, *EXPANDING_FUNCTIONS)
+def window_function(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.rolling_mean(s, n, min_periods, center) -> as s.rolling(n, min_periods=..,
+    center=..).mean(); pd.expanding_sum(s, min_periods) -> as s.expanding(min_periods).sum().
+
+    The functions took the Series first and the window's options after it, with the defaults
+    the methods kept (min_periods the window's size for rolling, 1 for expanding). freq= and
+    how= (resampling first) are TODOs.
+    """
+    rolling = ctx.key in ROLLING_FUNCTIONS
+    how = ROLLING_FUNCTIONS.get(ctx.key) or EXPANDING_FUNCTIONS[ctx.key]
+    options = ("arg", "window", "min_periods", "freq", "center", "how") if rolling else \
+        ("arg", "min_periods", "freq")
+    extra = ("ddof",) if how in ("std", "var") else ()
+    ctx.reject_unknown(call, *options, *extra, positional=len(options))
+    for name in ("freq", "how"):
+        if name in options and call.has(name, options.index(name)) \
+                and call.const(name, options.index(name), None) is not None:
+            raise Unsupported(f"{name}= (the Series resampled first)")
+    column = call.arg("arg", 0)
+    if not isinstance(column, Column):
+        raise Unsupported("a window over something other than a column")
+    window_options = {name: call.arg(name, options.index(name))
+                      for name in options[1:] if name not in ("freq", "how")
+                      and call.has(name, options.index(name))}
+    kind = "rolling" if rolling else "expanding"
+    window = _modern(f"series.{kind}", PandasCall(column, kind, (), window_options, call.node), ctx)
+    kwargs = {k: v for k, v in call.kwargs.items() if k in extra}
+    return _modern(f"series.{kind}.{how}", PandasCall(window, how, (), kwargs, call.node), ctx)

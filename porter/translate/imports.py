@@ -118,6 +118,10 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
         body.append(stmt)
     if not inserted:
         body = _insert_at_top(body)
+    if _reaches_numpy_through_pandas(used, facts, original):
+        # pd.np.log became np.log (pandas 2 removed pd.np): numpy imported as the script had not
+        body = _insert_after_imports(body, cst.SimpleStatementLine(body=[cst.Import(names=[
+            cst.ImportAlias(name=cst.Name("numpy"), asname=cst.AsName(name=cst.Name("np")))])]))
     for constant, definition in ((CSV_LISTS_CONSTANT, CSV_LISTS_DEFINITION),
                                  (CSV_NUMBER_LISTS_CONSTANT, CSV_NUMBER_LISTS_DEFINITION),
                                  (CSV_INTS_CONSTANT, CSV_INTS_DEFINITION),
@@ -169,6 +173,15 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
     if NA_CONSTANT in used and not _defines(module, NA_CONSTANT):
         body = _insert_after_imports(body, _na_constant())
     return module.with_changes(body=body)
+
+
+def _reaches_numpy_through_pandas(used: set[str], facts: ImportFacts,
+                                  original: cst.Module | None) -> bool:
+    """The conversion names np (written for pd.np) where the script imported no numpy and did
+    not use the name np itself."""
+    if "np" not in used or any(q == "numpy" for q in facts.names.values()):
+        return False
+    return original is None or "np" not in names_used(original)
 
 
 def _defines(module: cst.Module, name: str) -> bool:
