@@ -80,6 +80,7 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
     used but the conversion no longer does (np.where became pl.when): importing numpy costs
     time and memory. An import the original did not use either stays as the user wrote it."""
     module = plain_date_constants(module, facts)
+    module = _numpy_through_pandas(module, facts)
     used = names_used(module)
     if GROUP_MEAN_FUNCTION in used:
         used.add(GROUP_SUM_FUNCTION)  # the mean's definition calls it
@@ -173,6 +174,29 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
     if NA_CONSTANT in used and not _defines(module, NA_CONSTANT):
         body = _insert_after_imports(body, _na_constant())
     return module.with_changes(body=body)
+
+
+class _PandasNumpy(cst.CSTTransformer):
+    """pd.np -> np wherever the conversion still has it (a statement kept on pandas)."""
+
+    def __init__(self, pandas: set[str], numpy: str) -> None:
+        self.pandas, self.numpy = pandas, numpy
+
+    def leave_Attribute(self, original: cst.Attribute, updated: cst.Attribute) -> cst.BaseExpression:
+        if updated.attr.value == "np" and isinstance(updated.value, cst.Name) \
+                and updated.value.value in self.pandas:
+            return cst.Name(self.numpy)
+        return updated
+
+
+def _numpy_through_pandas(module: cst.Module, facts: ImportFacts) -> cst.Module:
+    """pandas' re-export of numpy (pd.np, removed in pandas 2.0) written as numpy itself, in
+    the code porter kept as the script wrote it too: pandas 3 has no pd.np."""
+    pandas = {n for n, q in facts.names.items() if q == "pandas"}
+    if not pandas or ".np" not in module.code:
+        return module
+    numpy = next((n for n, q in facts.names.items() if q == "numpy"), "np")
+    return module.visit(_PandasNumpy(pandas, numpy))
 
 
 def _reaches_numpy_through_pandas(used: set[str], facts: ImportFacts,
