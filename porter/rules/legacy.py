@@ -100,7 +100,7 @@ def _const(value: object) -> Opaque:
     return Opaque(emit.lit(value), const=value)
 
 
-def _modern(key: str, call: PandasCall, ctx: RuleContext) -> Value:
+def _as_today(key: str, call: PandasCall, ctx: RuleContext) -> Value:
     """Run the rule of today's spelling on the rewritten call."""
     return registry()[key](call, ctx)
 
@@ -158,11 +158,11 @@ def squeezed(read: Value, ctx: RuleContext) -> Value:
     if len(read.columns) != 1:
         return read
     name = read.columns[0]
-    return _modern("frame.getitem.column", PandasCall(read, "getitem", (_const(name),)), ctx)
+    return _as_today("frame.getitem.column", PandasCall(read, "getitem", (_const(name),)), ctx)
 
 
 def _column_named(frame: Frame, name: str, ctx: RuleContext) -> Value:
-    return _modern("frame.getitem.column", PandasCall(frame, "getitem", (_const(name),)), ctx)
+    return _as_today("frame.getitem.column", PandasCall(frame, "getitem", (_const(name),)), ctx)
 
 
 def _default_labels(frame: Frame) -> bool:
@@ -207,7 +207,7 @@ def ix(call: PandasCall, ctx: RuleContext) -> Value:
         # one value: on pandas' integer labels 0..n-1 a whole number was a label (.ix read
         # labels on an integer index), which is the row's position here
         column = _column_named(frame, cols.const, ctx)
-        return _modern("series.iloc", PandasCall(column, "iloc", (rows,), {}, call.node), ctx)
+        return _as_today("series.iloc", PandasCall(column, "iloc", (rows,), {}, call.node), ctx)
     every_row = isinstance(rows, Opaque) and rows.is_const and rows.const == slice(None)
     mask = isinstance(rows, Column) and rows.dtype == "bool"
     if not (every_row or mask):
@@ -220,7 +220,7 @@ def ix(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported(".ix[:, cols] with columns other than names written as text (a "
                           "number was a position where the columns are named by text, a label "
                           "otherwise); write .loc or .iloc")
-    return _modern("frame.loc", PandasCall(frame, "loc", call.args, {}, call.node), ctx)
+    return _as_today("frame.loc", PandasCall(frame, "loc", call.args, {}, call.node), ctx)
 
 
 @rule("frame.as_matrix")
@@ -241,9 +241,9 @@ def as_matrix(call: PandasCall, ctx: RuleContext) -> Value:
             if names is None or isinstance(given.const, str):  # type: ignore[union-attr]
                 raise Unsupported("as_matrix(columns=) with something other than a list of "
                                   "column names")
-            frame = _modern("frame.getitem.columns",  # type: ignore[assignment]
+            frame = _as_today("frame.getitem.columns",  # type: ignore[assignment]
                             PandasCall(frame, "getitem", (given,)), ctx)
-    return _modern("frame.to_numpy", PandasCall(frame, "to_numpy", (), {}, call.node), ctx)
+    return _as_today("frame.to_numpy", PandasCall(frame, "to_numpy", (), {}, call.node), ctx)
 
 
 @rule("frame.get_value")
@@ -268,7 +268,7 @@ def get_value(call: PandasCall, ctx: RuleContext) -> Value:
     if label < 0:
         raise Unsupported("get_value with a negative label (pandas raises: no such label)")
     column = _column_named(frame, name, ctx)
-    return _modern("series.iloc", PandasCall(column, "iloc", (_const(label),), {}, call.node), ctx)
+    return _as_today("series.iloc", PandasCall(column, "iloc", (_const(label),), {}, call.node), ctx)
 
 
 @rule("series.valid")
@@ -279,7 +279,7 @@ def valid(call: PandasCall, ctx: RuleContext) -> Value:
     another name.
     """
     ctx.reject_unknown(call)
-    return _modern("series.dropna", PandasCall(call.receiver, "dropna", (), {}, call.node), ctx)
+    return _as_today("series.dropna", PandasCall(call.receiver, "dropna", (), {}, call.node), ctx)
 
 
 @rule("series.order")
@@ -293,7 +293,7 @@ def order(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.reject_unknown(call, "ascending", "na_position", "kind")
     kwargs = dict(call.kwargs)
     kwargs.setdefault("kind", _const("mergesort"))
-    return _modern("series.sort_values",
+    return _as_today("series.sort_values",
                    PandasCall(call.receiver, "sort_values", (), kwargs, call.node), ctx)
 
 
@@ -311,7 +311,7 @@ def frame_sort(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("sort() without columns sorted by the index: write sort_index()")
     kwargs = {k: v for k, v in call.kwargs.items() if k != "columns"}
     kwargs["by"] = call.arg("columns", 0)
-    return _modern("frame.sort_values",
+    return _as_today("frame.sort_values",
                    PandasCall(call.receiver, "sort_values", (), kwargs, call.node), ctx)
 
 
@@ -349,6 +349,6 @@ def window_function(call: PandasCall, ctx: RuleContext) -> Value:
                       for name in options[1:] if name not in ("freq", "how")
                       and call.has(name, options.index(name))}
     kind = "rolling" if rolling else "expanding"
-    window = _modern(f"series.{kind}", PandasCall(column, kind, (), window_options, call.node), ctx)
+    window = _as_today(f"series.{kind}", PandasCall(column, kind, (), window_options, call.node), ctx)
     kwargs = {k: v for k, v in call.kwargs.items() if k in extra}
-    return _modern(f"series.{kind}.{how}", PandasCall(window, how, (), kwargs, call.node), ctx)
+    return _as_today(f"series.{kind}.{how}", PandasCall(window, how, (), kwargs, call.node), ctx)
