@@ -168,6 +168,27 @@ def test_ix_of_a_sorted_frame_is_not_ported():
     assert ".ix[1" in converted and ".get(" not in converted, converted
 
 
+@pytest.mark.parametrize("old", [
+    'df.ix[df["kg"] > 10, "kg"] = 10.0',
+    'df.ix[df["organic"], "label"] = "bio"',
+    'df.ix[df["crates"] >= 3, ["kg", "crates"]] = 0',
+    'df.ix[:, "checked"] = True',
+    'df.ix[df["grower"] == "Brûlé", "crates"] = 9',
+])
+def test_ix_writes_read_as_labels(old):
+    new = old.replace(".ix[", ".loc[")
+    legacy_differential(old + "\nresult = df", new + "\nresult = df")
+    if "label" not in old and "checked" not in old:  # (pandas refuses a new column on no rows)
+        legacy_differential(EMPTY + old + "\nresult = df", EMPTY + new + "\nresult = df")
+
+
+@pytest.mark.parametrize("old", ['df.ix[0, "kg"] = 1.0', 'df.ix[df["kg"] > 1, 1] = 0',
+                                 'df.ix[df["crates"] > 1, "crates"] = 0.5'])
+def test_ix_writes_that_may_be_positions_or_refused_stay_pandas(old):
+    converted = convert(textwrap.dedent(ORCHARD + old)).converted_text
+    assert "TODO(porter): frame.ix_setitem" in converted, converted
+
+
 # -- as_matrix, get_value -------------------------------------------------------------------
 
 @pytest.mark.parametrize("old,new", [

@@ -223,6 +223,33 @@ def ix(call: PandasCall, ctx: RuleContext) -> Value:
     return _as_today("frame.loc", PandasCall(frame, "loc", call.args, {}, call.node), ctx)
 
 
+@rule("frame.ix_setitem")
+def ix_setitem(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.ix[rows, cols] = v -> as df.loc[rows, cols] = v where .ix read labels: every row
+    (:) or a True/False mask, column names written as text.
+
+    The keys are read as frame.ix reads them (from memory: .ix removed in pandas 1.0); whole
+    numbers for the rows or the columns are TODOs (a label or a position). The value is
+    written as pandas 3.1 writes it with .loc: a value pandas 3.1 refuses in a column (0.5
+    into an int column), which older pandas wrote by making the column float, is a TODO there.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    if len(call.args) != 3:
+        raise Unsupported(".ix assignment needs rows and columns")
+    rows, cols, _ = call.args
+    every_row = isinstance(rows, Opaque) and rows.is_const and rows.const == slice(None)
+    if not (every_row or isinstance(rows, Column) and rows.dtype == "bool"):
+        raise Unsupported(".ix[rows] = with rows other than `:` or a True/False mask: .ix read a "
+                          "whole number as a label of an integer index and as a position "
+                          "otherwise; write .loc (labels) or .iloc (positions)")
+    if _names(cols) is None:
+        raise Unsupported(".ix[:, cols] = with columns other than names written as text; write "
+                          ".loc or .iloc")
+    return _as_today("frame.loc_setitem", PandasCall(frame, "loc_setitem", call.args, {},
+                                                     call.node), ctx)
+
+
 @rule("frame.as_matrix")
 def as_matrix(call: PandasCall, ctx: RuleContext) -> Value:
     """df.as_matrix(columns=None) -> as df[columns].to_numpy() (collected to numpy).
