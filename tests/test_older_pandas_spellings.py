@@ -236,11 +236,13 @@ def test_set_value_and_lookup_are_todos_with_advice(old):
     ('result = df["kg"].valid()', 'result = df["kg"].dropna()'),
     ('result = df["grower"].valid()', 'result = df["grower"].dropna()'),
     ('result = df["kg"].valid().sum()', 'result = df["kg"].dropna().sum()'),
-    ('result = df["kg"].order()', 'result = df["kg"].sort_values(kind="mergesort")'),
-    ('result = df["kg"].order(ascending=False)',
-     'result = df["kg"].sort_values(ascending=False, kind="mergesort")'),
+    ('result = df["kg"].order()', 'result = df["kg"].sort_values()'),
+    ('result = df["kg"].order(ascending=False)', 'result = df["kg"].sort_values(ascending=False)'),
     ('result = df["grower"].order(na_position="first")',
-     'result = df["grower"].sort_values(na_position="first", kind="mergesort")'),
+     'result = df["grower"].sort_values(na_position="first")'),
+    ('result = df["kg"].order(na_last=False)', 'result = df["kg"].sort_values(na_position="first")'),
+    ('result = df["crates"].order(kind="mergesort")',
+     'result = df["crates"].sort_values(kind="mergesort")'),
     ('result = df.sort("kg")', 'result = df.sort_values("kg")'),
     ('result = df.sort(columns="crates", ascending=False)',
      'result = df.sort_values(by="crates", ascending=False)'),
@@ -254,15 +256,13 @@ def test_renamed_series_and_frame_methods(old, new):
     legacy_differential(EMPTY + old, EMPTY + new)
 
 
-def test_order_sorts_stably_as_sort_values_with_mergesort():
-    # order() sorted stably (kind="mergesort"): tied values keep their order, where
-    # sort_values' default quicksort need not (porter writes pandas' unstable order for it)
+def test_order_sorts_as_sort_values():
+    # order()'s default kind was sort_values' quicksort (pandas 0.15 to 0.19): tied values in
+    # the order pandas' unstable sort gives them, written as sort_values' rule writes it
     old = convert(textwrap.dedent(ORCHARD + 'result = df["kg"].order().tolist()')).converted_text
     new = convert(textwrap.dedent(
-        ORCHARD + 'result = df["kg"].sort_values(kind="mergesort").tolist()')).converted_text
-    default = convert(textwrap.dedent(
         ORCHARD + 'result = df["kg"].sort_values().tolist()')).converted_text
-    assert old == new != default
+    assert old == new
 
 
 def test_sort_without_columns_is_a_todo():

@@ -311,17 +311,24 @@ def valid(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("series.order")
 def order(call: PandasCall, ctx: RuleContext) -> Value:
-    """s.order(ascending, na_position, kind) -> as s.sort_values(..., kind="mergesort").
+    """s.order(ascending, na_position, kind) -> as s.sort_values(ascending, na_position, kind).
 
-    Series.order (from memory: deprecated in pandas 0.17 for sort_values, removed in 0.20)
-    sorted a copy, missing values last, with a stable sort (kind="mergesort") unless told
-    otherwise: tied values keep their order.
+    Series.order (deprecated in pandas 0.17 for sort_values, removed in 0.20) sorted a copy,
+    missing values last. Its default kind was "quicksort" from pandas 0.15 to 0.19, as
+    sort_values' (the source of those releases says so); before 0.15 it was "mergesort" (a
+    stable sort) and the place of missing values was na_last=True / False, read here as
+    na_position="last" / "first". A script from before 0.15 that relied on tied values
+    keeping their order is read with the later default.
     """
-    ctx.reject_unknown(call, "ascending", "na_position", "kind")
-    kwargs = dict(call.kwargs)
-    kwargs.setdefault("kind", _const("mergesort"))
+    ctx.reject_unknown(call, "na_last", "ascending", "kind", "na_position")
+    kwargs = {k: v for k, v in call.kwargs.items() if k != "na_last"}
+    if call.has("na_last"):
+        if call.has("na_position"):
+            raise Unsupported("order(na_last=, na_position=) (pandas took one of them)")
+        last = call.const("na_last", None, True, kinds=(bool, type(None)))
+        kwargs["na_position"] = _const("first" if last is False else "last")
     return _as_today("series.sort_values",
-                   PandasCall(call.receiver, "sort_values", (), kwargs, call.node), ctx)
+                     PandasCall(call.receiver, "sort_values", (), kwargs, call.node), ctx)
 
 
 @rule("frame.sort")
