@@ -141,6 +141,17 @@ def test_read_csv_error_bad_lines_beside_on_bad_lines_is_a_todo():
     ('result = df.ix[1, "kg"]', 'result = df.at[1, "kg"]'),
     ('result = df.ix[2, "grower"]', 'result = df.at[2, "grower"]'),
     ('result = df.ix[0, "crates"]', 'result = df.at[0, "crates"]'),
+    # a slice of whole numbers on pandas' labels 0..n-1: labels, the end included
+    ('result = df.ix[:2]', 'result = df.loc[:2]'),
+    ('result = df.ix[2:4, "kg"].tolist()', 'result = df.loc[2:4, "kg"].tolist()'),
+    ('result = df.ix[3:, ["grower", "kg"]]', 'result = df.loc[3:, ["grower", "kg"]]'),
+    ('result = df.ix[5:40]', 'result = df.loc[5:40]'),
+    ('result = df.ix[4:2]', 'result = df.loc[4:2]'),
+    # whole numbers among columns named by text: positions, a slice's end left out
+    ('result = df.ix[:, 1].tolist()', 'result = df.iloc[:, 1].tolist()'),
+    ('result = df.ix[:, 0:2]', 'result = df.iloc[:, 0:2]'),
+    ('result = df.ix[1:3, [0, 3]]', 'result = df.loc[1:3, df.columns[[0, 3]]]'),
+    ('result = df.ix[df["kg"] > 5, 2].tolist()', 'result = df.loc[df["kg"] > 5, df.columns[2]].tolist()'),
 ])
 def test_ix_keys_read_as_labels(old, new):
     legacy_differential(old, new)
@@ -152,13 +163,17 @@ def test_ix_on_no_rows():
 
 
 @pytest.mark.parametrize("old", [
-    'result = df.ix[0:2, "kg"]',  # a label slice of an integer index (inclusive), or positions
-    'result = df.ix[:, 1]',  # a position among named columns
+    'df = df.sort_values("kg")\nresult = df.ix[0:2, "kg"]',  # labels no longer positions
+    'df = df[df["crates"] > 1]\nresult = df.ix[:2]',
+    'result = df.ix[-2:, "kg"]',  # no such label
+    'result = df.ix[0:4:2]',
+    'result = df.ix[[0, 1], "kg"]',
     'result = df.ix[3]',  # a row as a Series
 ])
-def test_ix_keys_that_may_be_positions_are_todos(old):
+def test_ix_keys_that_may_be_positions_stay_pandas(old):
+    # a TODO of frame.ix, or the frame kept on pandas for its labels: .ix is not rewritten
     converted = convert(textwrap.dedent(ORCHARD + old)).converted_text
-    assert "TODO(porter): frame.ix" in converted, converted
+    assert "TODO(porter)" in converted and ".ix[" in converted, converted
 
 
 def test_ix_of_a_sorted_frame_is_not_ported():

@@ -183,17 +183,20 @@ def _names(value: Value) -> list[str] | None:
 
 @rule("frame.ix")
 def ix(call: PandasCall, ctx: RuleContext) -> Value:
-    """df.ix[rows, cols] -> as df.loc[rows, cols] where .ix read labels: every row (:) or a
-    True/False mask for the rows, column names written as text.
+    """df.ix[rows, cols] -> as df.loc / df.iloc, where the frame tells which one .ix read:
+    every row (:) or a True/False mask, rows by label on pandas' labels 0..n-1 (a slice of
+    whole numbers, its end included, is the same positions), column names written as text
+    (labels) or whole numbers among text names (positions).
 
-    .ix (from memory: deprecated in pandas 0.20, removed in 1.0) read a key as a label where
-    the axis had such a label, and as a position otherwise (a whole number on an axis of text
-    labels). A mask, `:` and names of columns written as text can only be labels, so the read
-    is .loc's. df.ix[i, "c"] on a frame whose labels are still pandas' 0..n-1 (read, not
-    filtered, sorted or indexed since) is the value at label i, the row at position i.
-    Other whole numbers or slices of them for the rows (a label of an integer index, a
-    position otherwise: porter does not model the index) and a number for the columns (the
-    columns' own labels are text: a position) are TODOs, which say to write .loc or .iloc.
+    .ix (deprecated in pandas 0.20, removed in 1.0; from memory) read a key as a label where
+    the axis had such labels and as a position otherwise. pandas' Index._convert_slice_indexer
+    of those releases (read in its source) reads a slice of whole numbers as labels on an
+    integer index, positions on any other: on a frame read and not yet filtered, sorted or
+    indexed, whose labels are 0..n-1, df.ix[a:b] is rows a to b, b included (df.ix[:5] is six
+    rows), and df.ix[i, "c"] the value at row i. Columns named by text read a whole number as
+    a position (df.ix[:, 1], df.ix[:, 0:2] with its end left out, as positions are sliced).
+    Other rows (after a filter or sort, negative bounds, a step, a list of labels, one row),
+    and columns named by numbers are TODOs, which say to write .loc or .iloc.
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
@@ -208,19 +211,56 @@ def ix(call: PandasCall, ctx: RuleContext) -> Value:
         # labels on an integer index), which is the row's position here
         column = _column_named(frame, cols.const, ctx)
         return _as_today("series.iloc", PandasCall(column, "iloc", (rows,), {}, call.node), ctx)
-    every_row = isinstance(rows, Opaque) and rows.is_const and rows.const == slice(None)
+    every_row = isinstance(label, slice) and label == slice(None)
     mask = isinstance(rows, Column) and rows.dtype == "bool"
-    if not (every_row or mask):
-        raise Unsupported(".ix[rows] with rows other than `:` or a True/False mask: .ix read a "
-                          "whole number as a label of an integer index and as a position "
-                          "otherwise, which porter cannot tell; write .loc (labels) or .iloc "
-                          "(positions)")
-    if cols is not None and not (isinstance(cols, Opaque) and cols.is_const
-                                 and cols.const == slice(None)) and _names(cols) is None:
-        raise Unsupported(".ix[:, cols] with columns other than names written as text (a "
-                          "number was a position where the columns are named by text, a label "
-                          "otherwise); write .loc or .iloc")
-    return _as_today("frame.loc", PandasCall(frame, "loc", call.args, {}, call.node), ctx)
+    if isinstance(label, slice) and not every_row:
+        if not (_default_labels(frame) and label.step in (None, 1) and all(
+                v is None or isinstance(v, int) and not isinstance(v, bool) and v >= 0
+                for v in (label.start, label.stop))):
+            raise Unsupported(".ix[a:b] on a frame whose labels are not 0..n-1 (filtered, sorted "
+                              "or indexed since it was read), or with negative bounds or a step: "
+                              ".ix read labels of an integer index, positions otherwise; write "
+                              ".loc (labels) or .iloc (positions)")
+        # labels a..b, b included: on labels 0..n-1 the positions a..b
+        # (an end before the start chooses no row, as iloc[a:a] does)
+        stop = None if label.stop is None else max(label.stop + 1, label.start or 0)
+        frame = _as_today("frame.iloc", PandasCall(  # type: ignore[assignment]
+            frame, "iloc", (_const(slice(label.start, stop)),), {}, call.node), ctx)
+        rows, every_row = _const(slice(None)), True
+    elif not (every_row or mask):
+        raise Unsupported(".ix[rows] with rows other than `:`, a True/False mask or a slice of "
+                          "whole numbers: .ix read a whole number as a label of an integer "
+                          "index and as a position otherwise, which porter cannot tell here; "
+                          "write .loc (labels) or .iloc (positions)")
+    if cols is None or isinstance(cols, Opaque) and cols.is_const and cols.const == slice(None):
+        if every_row:
+            return frame
+        return _as_today("frame.loc", PandasCall(frame, "loc", (rows,), {}, call.node), ctx)
+    if _names(cols) is not None:
+        return _as_today("frame.loc", PandasCall(frame, "loc", (rows, cols), {}, call.node), ctx)
+    if isinstance(cols, Opaque) and _positions(cols.const) and frame.columns is not None \
+            and all(isinstance(c, str) for c in frame.columns):
+        # whole numbers among columns named by text: positions to .ix
+        if mask:
+            frame = _as_today("frame.loc", PandasCall(  # type: ignore[assignment]
+                frame, "loc", (rows,), {}, call.node), ctx)
+        return _as_today("frame.iloc", PandasCall(frame, "iloc", (_const(slice(None)), cols),
+                                                  {}, call.node), ctx)
+    raise Unsupported(".ix[:, cols] with columns other than names written as text or whole "
+                      "numbers among columns porter knows are named by text; write .loc or .iloc")
+
+
+def _positions(key: object) -> bool:
+    """A whole number, a list of them or a slice of them (None bounds too)."""
+    def whole(v: object) -> bool:
+        return isinstance(v, int) and not isinstance(v, bool)
+    if whole(key):
+        return True
+    if isinstance(key, list):
+        return bool(key) and all(whole(v) for v in key)
+    if isinstance(key, slice):
+        return all(v is None or whole(v) for v in (key.start, key.stop, key.step))
+    return False
 
 
 @rule("frame.ix_setitem")
