@@ -305,6 +305,19 @@ def test_window_functions_are_window_methods(old, new):
     legacy_differential(EMPTY + old + "\nresult = df", EMPTY + new + "\nresult = df")
 
 
+@pytest.mark.parametrize("old,new", [
+    ('df["e"] = pd.ewma(df["kg"], span=3)', 'df["e"] = df["kg"].ewm(span=3).mean()'),
+    ('df["e"] = pd.ewma(df["kg"], 1.5)', 'df["e"] = df["kg"].ewm(com=1.5).mean()'),
+    ('df["e"] = pd.ewma(df["crates"], halflife=2, adjust=False, ignore_na=True)',
+     'df["e"] = df["crates"].ewm(halflife=2, adjust=False, ignore_na=True).mean()'),
+    ('df["e"] = pd.ewma(df["kg"], alpha=0.4, min_periods=2)',
+     'df["e"] = df["kg"].ewm(alpha=0.4, min_periods=2).mean()'),
+])
+def test_ewma_is_ewm_mean(old, new):
+    legacy_differential(old + "\nresult = df", new + "\nresult = df")
+    legacy_differential(EMPTY + old + "\nresult = df", EMPTY + new + "\nresult = df")
+
+
 def test_window_function_with_freq_is_a_todo():
     converted = convert(textwrap.dedent(
         ORCHARD + 'df["r"] = pd.rolling_mean(df["kg"], 2, freq="D")\n')).converted_text
@@ -343,6 +356,8 @@ def test_pd_np_without_a_numpy_import_imports_it():
 
 @pytest.mark.parametrize("line", [
     "x = df.ix",
+    'e = pd.ewma(df["kg"], 3, 2)',
+    'e = pd.ewma(df["kg"], span=3, freq="D")',
     "r = pd.rolling_mean(df, 3)",
     'r = pd.rolling_mean(df["kg"], "2D")',
     "w = pd.rolling_sum(df['kg'], window=n)",

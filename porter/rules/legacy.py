@@ -426,3 +426,34 @@ def window_function(call: PandasCall, ctx: RuleContext) -> Value:
     window = _as_today(f"series.{kind}", PandasCall(column, kind, (), window_options, call.node), ctx)
     kwargs = {k: v for k, v in call.kwargs.items() if k in extra}
     return _as_today(f"series.{kind}.{how}", PandasCall(window, how, (), kwargs, call.node), ctx)
+
+
+@rule("pd.ewma")
+def ewma(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.ewma(s, com= | span= | halflife= | alpha=, min_periods=, adjust=, ignore_na=) -> as
+    s.ewm(...).mean().
+
+    pd.ewma (deprecated in pandas 0.18, removed in 0.23; from memory) was, in 0.18 (read in
+    its source), ensure_compat("ewm", "mean", ...): s.ewm(...).mean() with the same options.
+    The series and com are read by position (alpha came in 0.18, so the later positions
+    differ between releases: they must be named); freq= and how= (resampling first) are
+    TODOs. Before 0.15.2, min_periods blanked the first values from the first present one
+    (later: fewer present values than min_periods): read as the later meaning (0.95).
+    """
+    ctx.reject_unknown(call, "arg", "com", "span", "halflife", "alpha", "min_periods", "freq",
+                       "adjust", "how", "ignore_na", positional=2)
+    for name in ("freq", "how"):
+        if call.has(name) and call.const(name, None, None) is not None:
+            raise Unsupported(f"{name}= (the Series resampled first)")
+    column = call.arg("arg", 0)
+    if not isinstance(column, Column):
+        raise Unsupported("an average over something other than a column")
+    kwargs = {name: call.arg(name, 1 if name == "com" else None)
+              for name in ("com", "span", "halflife", "alpha", "min_periods", "adjust", "ignore_na")
+              if call.has(name, 1 if name == "com" else None)}
+    if call.const("min_periods", None, 0, kinds=(int,)):
+        ctx.lower("min_periods=: before pandas 0.15.2 it blanked the first values after the "
+                  "first present one, since then the values with fewer present ones before "
+                  "them (read so)", 0.95)
+    weights = _as_today("series.ewm", PandasCall(column, "ewm", (), kwargs, call.node), ctx)
+    return _as_today("series.ewm.mean", PandasCall(weights, "mean", (), {}, call.node), ctx)
