@@ -271,6 +271,26 @@ def test_renamed_series_and_frame_methods(old, new):
     legacy_differential(EMPTY + old, EMPTY + new)
 
 
+@pytest.mark.parametrize("old,new", [
+    ('result = pd.value_counts(df["grower"])', 'result = df["grower"].value_counts()'),
+    ('result = pd.value_counts(df["kg"], normalize=True)',
+     'result = df["kg"].value_counts(normalize=True)'),
+    ('result = pd.value_counts(df["crates"], True, True)',
+     'result = df["crates"].value_counts(sort=True, ascending=True)'),
+    ('result = pd.value_counts(df["grower"], dropna=False)',
+     'result = df["grower"].value_counts(dropna=False)'),
+    ('df["kg"] = df["kg"].pad()\nresult = df', 'df["kg"] = df["kg"].ffill()\nresult = df'),
+    ('df["kg"] = df["kg"].backfill(limit=1)\nresult = df',
+     'df["kg"] = df["kg"].bfill(limit=1)\nresult = df'),
+    ('result = df.pad()', 'result = df.ffill()'),
+    ('result = df.backfill()', 'result = df.bfill()'),
+    ('df.pad(inplace=True)\nresult = df', 'df.ffill(inplace=True)\nresult = df'),
+])
+def test_functions_and_names_pandas_3_removed(old, new):
+    legacy_differential(old, new)
+    legacy_differential(EMPTY + old, EMPTY + new)
+
+
 def test_order_sorts_as_sort_values():
     # order()'s default kind was sort_values' quicksort (pandas 0.15 to 0.19): tied values in
     # the order pandas' unstable sort gives them, written as sort_values' rule writes it

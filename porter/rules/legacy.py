@@ -457,3 +457,34 @@ def ewma(call: PandasCall, ctx: RuleContext) -> Value:
                   "them (read so)", 0.95)
     weights = _as_today("series.ewm", PandasCall(column, "ewm", (), kwargs, call.node), ctx)
     return _as_today("series.ewm.mean", PandasCall(weights, "mean", (), {}, call.node), ctx)
+
+
+@rule("pd.value_counts")
+def top_value_counts(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.value_counts(s, sort, ascending, normalize, bins, dropna) -> as s.value_counts(...).
+
+    The function (deprecated in pandas 2.1, removed in 3.0; from memory) counted the values
+    of the Series it was given, as the method does, with the same options in another order.
+    """
+    options = ("values", "sort", "ascending", "normalize", "bins", "dropna")
+    ctx.reject_unknown(call, *options, positional=len(options))
+    column = call.arg("values", 0)
+    if not isinstance(column, Column):
+        raise Unsupported("pd.value_counts of something other than a column")
+    kwargs = {name: call.arg(name, i) for i, name in enumerate(options)
+              if i and call.has(name, i)}
+    return _as_today("series.value_counts",
+                     PandasCall(column, "value_counts", (), kwargs, call.node), ctx)
+
+
+@rule("series.pad", "series.backfill", "frame.pad", "frame.backfill")
+def pad(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.pad() / s.backfill() (and a frame's) -> as s.ffill() / s.bfill().
+
+    pad and backfill (deprecated in pandas 2.0, removed in 3.0; from memory) were ffill and
+    bfill under their older names, with the same options.
+    """
+    owner = "frame" if isinstance(call.receiver, Frame) else "series"
+    today = "ffill" if call.name == "pad" else "bfill"
+    return _as_today(f"{owner}.{today}",
+                     PandasCall(call.receiver, today, call.args, call.kwargs, call.node), ctx)
