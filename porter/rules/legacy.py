@@ -478,7 +478,7 @@ def top_value_counts(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 @rule("series.pad", "series.backfill", "frame.pad", "frame.backfill")
-def pad(call: PandasCall, ctx: RuleContext) -> Value:
+def pad_backfill(call: PandasCall, ctx: RuleContext) -> Value:
     """s.pad() / s.backfill() (and a frame's) -> as s.ffill() / s.bfill().
 
     pad and backfill (deprecated in pandas 2.0, removed in 3.0; from memory) were ffill and
