@@ -285,6 +285,10 @@ def test_renamed_series_and_frame_methods(old, new):
     ('result = df.pad()', 'result = df.ffill()'),
     ('result = df.backfill()', 'result = df.bfill()'),
     ('df.pad(inplace=True)\nresult = df', 'df.ffill(inplace=True)\nresult = df'),
+    ('t = df.groupby("grower")["kg"].sum()\nresult = dict(t.iteritems())',
+     't = df.groupby("grower")["kg"].sum()\nresult = dict(t.items())'),
+    ('t = df.groupby("crates")["grower"].count()\nresult = [(k, v * 2) for k, v in t.iteritems()]',
+     't = df.groupby("crates")["grower"].count()\nresult = [(k, v * 2) for k, v in t.items()]'),
 ])
 def test_functions_and_names_pandas_3_removed(old, new):
     legacy_differential(old, new)

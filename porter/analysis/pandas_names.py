@@ -117,7 +117,7 @@ FRAME_REMOVED = frozenset(('append', 'applymap', 'iteritems', 'as_matrix', 'get_
                            'set_value', 'lookup', 'sort', 'pad', 'backfill'))
 # Series methods pandas removed (rules/legacy.py), read when no method has the name
 SERIES_REMOVED = frozenset(('valid', 'order', 'get_value', 'set_value', 'as_matrix', 'pad',
-                            'backfill'))
+                            'backfill', 'iteritems'))
 
 
 def _generate() -> str:  # pragma: no cover - run by hand when pandas changes

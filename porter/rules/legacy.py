@@ -488,3 +488,14 @@ def pad_backfill(call: PandasCall, ctx: RuleContext) -> Value:
     today = "ffill" if call.name == "pad" else "bfill"
     return _as_today(f"{owner}.{today}",
                      PandasCall(call.receiver, today, call.args, call.kwargs, call.node), ctx)
+
+
+@rule("series.iteritems")
+def series_iteritems(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.iteritems() -> as s.items(): (label, value) pairs.
+
+    Series.iteritems (deprecated in pandas 1.5, removed in 2.0; from memory) was items()
+    under its Python 2 name.
+    """
+    return _as_today("series.items", PandasCall(call.receiver, "items", call.args, call.kwargs,
+                                                call.node), ctx)
