@@ -402,3 +402,22 @@ def test_odd_forms_convert_with_a_todo_or_a_port(line):
     source = textwrap.dedent(ORCHARD) + "n = len(df)\n" + line + "\n"
     result = convert(source)  # never an internal error; the output parses (checked there)
     assert "pd.np" not in result.converted_text
+
+
+# -- calls kept on pandas are written as pandas 3.1 spells them -----------------------------
+
+@pytest.mark.parametrize("old,new,written", [
+    ('result = df.get_value(1, "grower")', 'result = df.at[1, "grower"]', '.at[1, "grower"]'),
+    ('result = df["kg"].valid(inplace=False)', 'result = df["kg"].dropna(inplace=False)',
+     ".dropna(inplace=False)"),
+])
+def test_a_call_kept_on_pandas_is_written_as_pandas_3_spells_it(tmp_path, monkeypatch, old, new,
+                                                                 written):
+    # without --data porter does not know the columns' types: the call stays pandas', and
+    # runs there
+    (tmp_path / "d.csv").write_text(DELIVERIES, encoding="utf-8")
+    monkeypatch.chdir(tmp_path)
+    frame = 'import pandas as pd\ndf = pd.read_csv("d.csv")\n'
+    converted = convert(frame + old + "\n").converted_text
+    assert "TODO(porter)" in converted and written in converted, converted
+    assert_same_value(run(frame + new + "\n")["result"], run(converted)["result"])

@@ -499,3 +499,34 @@ def series_iteritems(call: PandasCall, ctx: RuleContext) -> Value:
     """
     return _as_today("series.items", PandasCall(call.receiver, "items", call.args, call.kwargs,
                                                 call.node), ctx)
+
+
+# -- a call kept on pandas, written as pandas 3.1 spells it -------------------------------------
+#
+# A call porter keeps on pandas (a TODO, or a value only pandas gives) runs on pandas 3.1,
+# which no longer has the older names: the hand-over writes today's spelling of the same call
+# (handover.pandas_fallback), as it writes today's frequency aliases. Only calls whose receiver
+# is a pandas value, and only spellings with one meaning, are rewritten.
+
+_RENAMED_METHODS = {"iteritems": "items", "applymap": "map", "valid": "dropna", "pad": "ffill",
+                    "backfill": "bfill"}
+
+
+def modern_method(name: str, args: list[tuple[str | None, str]]) -> str | None:
+    """`.name(args)` of a pandas frame or Series as pandas 3.1 writes it (the text after the
+    receiver), given the arguments as (keyword or None, text); None when there is nothing to
+    rewrite or no one way to."""
+    positional = [text for keyword, text in args if keyword is None]
+    keywords = {keyword: text for keyword, text in args if keyword is not None}
+    if name in _RENAMED_METHODS:
+        written = [text if keyword is None else f"{keyword}={text}" for keyword, text in args]
+        return f".{_RENAMED_METHODS[name]}({', '.join(written)})"
+    if name == "as_matrix" and len(args) <= 1 and set(keywords) <= {"columns"}:
+        columns = positional[0] if positional else keywords.get("columns")
+        if columns in (None, "None"):
+            return ".to_numpy()"
+        # a list of names (a text would choose a Series: not what as_matrix read)
+        return f"[{columns}].to_numpy()" if columns.startswith("[") else None
+    if name == "get_value" and len(positional) == 2 and not keywords:
+        return f".at[{positional[0]}, {positional[1]}]"
+    return None
