@@ -342,6 +342,19 @@ def test_ewma_is_ewm_mean(old, new):
     legacy_differential(EMPTY + old + "\nresult = df", EMPTY + new + "\nresult = df")
 
 
+@pytest.mark.parametrize("old,new", [
+    ('df["r"] = pd.rolling_apply(df["kg"], 3, lambda w: w[-1] - np.nanmean(w), min_periods=2)',
+     'df["r"] = df["kg"].rolling(3, min_periods=2).apply(lambda w: w[-1] - np.nanmean(w), raw=True)'),
+    ('df["r"] = pd.rolling_apply(df["crates"], 2, lambda w: w.max() - w.min())',
+     'df["r"] = df["crates"].rolling(2).apply(lambda w: w.max() - w.min(), raw=True)'),
+    ('df["r"] = pd.expanding_apply(df["kg"], lambda w: abs(np.nanmax(w)))',
+     'df["r"] = df["kg"].expanding().apply(lambda w: abs(np.nanmax(w)), raw=True)'),
+])
+def test_window_apply_functions_give_numpy_windows(old, new):
+    legacy_differential(old + "\nresult = df", new + "\nresult = df")
+    legacy_differential(EMPTY + old + "\nresult = df", EMPTY + new + "\nresult = df")
+
+
 def test_window_function_with_freq_is_a_todo():
     converted = convert(textwrap.dedent(
         ORCHARD + 'df["r"] = pd.rolling_mean(df["kg"], 2, freq="D")\n')).converted_text

@@ -530,3 +530,34 @@ def modern_method(name: str, args: list[tuple[str | None, str]]) -> str | None:
     if name == "get_value" and len(positional) == 2 and not keywords:
         return f".at[{positional[0]}, {positional[1]}]"
     return None
+
+
+@rule("pd.rolling_apply", "pd.expanding_apply")
+def window_apply_function(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.rolling_apply(s, n, func, min_periods, freq, center) -> as s.rolling(n, ...).apply(
+    func, raw=True); pd.expanding_apply(s, func, min_periods) -> as s.expanding(...).apply(
+    func, raw=True).
+
+    The functions (deprecated in pandas 0.18, removed in 0.23; from memory) called func on
+    each window as a numpy array, which is raw=True (the default raw=False of today passes a
+    Series). freq= (resampling first), args= and kwargs= are TODOs.
+    """
+    rolling = ctx.key == "pd.rolling_apply"
+    options = ("arg", "window", "func", "min_periods", "freq", "center", "args", "kwargs") \
+        if rolling else ("arg", "func", "min_periods", "freq", "args", "kwargs")
+    ctx.reject_unknown(call, *options, positional=len(options))
+    for name in ("freq", "args", "kwargs"):
+        at = options.index(name)
+        if call.has(name, at) and call.const(name, at, None) not in (None, (), {}):
+            raise Unsupported(f"{name}= of pd.{ctx.key[3:]}")
+    column = call.arg("arg", 0)
+    if not isinstance(column, Column):
+        raise Unsupported("a window over something other than a column")
+    window_options = {name: call.arg(name, options.index(name))
+                      for name in ("window", "min_periods", "center")
+                      if name in options and call.has(name, options.index(name))}
+    kind = "rolling" if rolling else "expanding"
+    window = _as_today(f"series.{kind}", PandasCall(column, kind, (), window_options, call.node), ctx)
+    func = call.arg("func", options.index("func"))
+    return _as_today(f"series.{kind}.apply", PandasCall(
+        window, "apply", (func,), {"raw": _const(True)}, call.node), ctx)
