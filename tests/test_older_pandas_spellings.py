@@ -263,6 +263,10 @@ def test_set_value_and_lookup_are_todos_with_advice(old):
      'result = df.sort_values(by="crates", ascending=False)'),
     ('result = df.sort(["crates", "grower"], ascending=[True, False])',
      'result = df.sort_values(["crates", "grower"], ascending=[True, False])'),
+    ('result = df.sort_index(by="kg")', 'result = df.sort_values(by="kg")'),
+    ('result = df.sort_index(by=["crates", "grower"], ascending=False)',
+     'result = df.sort_values(by=["crates", "grower"], ascending=False)'),
+    ('result = df.sort_index(by="kg", na_position="first")', 'result = df.sort_values(by="kg")'),
     ('df.sort("kg", inplace=True)\nresult = df.head(4)',
      'df.sort_values("kg", inplace=True)\nresult = df.head(4)'),
 ])

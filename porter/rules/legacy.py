@@ -561,3 +561,22 @@ def window_apply_function(call: PandasCall, ctx: RuleContext) -> Value:
     func = call.arg("func", options.index("func"))
     return _as_today(f"series.{kind}.apply", PandasCall(
         window, "apply", (func,), {"raw": _const(True)}, call.node), ctx)
+
+
+def sort_index_by(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.sort_index(by=cols, ascending=) -> as df.sort_values(cols, ascending=) (the frame's
+    sort_index rule hands it here).
+
+    sort_index(by=) (deprecated in pandas 0.17, removed by 1.0; from memory) was, in the
+    source of 0.20 (read), sort_values(by, axis=axis, ascending=ascending, inplace=inplace):
+    kind= and na_position= were not passed on (sort_values' defaults), level= beside by=
+    raised.
+    """
+    ctx.reject_unknown(call, "by", "axis", "ascending", "inplace", "kind", "na_position")
+    if call.const("axis", None, 0, kinds=(int, str)) not in (0, "index", "rows"):
+        raise Unsupported("sort_index(by=, axis=1)")
+    kwargs = {"by": call.kwargs["by"]}
+    if "ascending" in call.kwargs:
+        kwargs["ascending"] = call.kwargs["ascending"]
+    return _as_today("frame.sort_values",
+                     PandasCall(call.receiver, "sort_values", (), kwargs, call.node), ctx)
