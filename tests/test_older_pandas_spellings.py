@@ -157,6 +157,17 @@ def test_ix_keys_read_as_labels(old, new):
     legacy_differential(old, new)
 
 
+@pytest.mark.parametrize("old,new", [
+    ('result = df["kg"].ix[df["crates"] > 1].tolist()', 'result = df["kg"][df["crates"] > 1].tolist()'),
+    ('result = df["grower"].ix[3]', 'result = df["grower"].loc[3]'),
+    ('result = df["kg"].ix[1]', 'result = df["kg"].loc[1]'),
+    ('t = df.groupby("grower")["crates"].sum()\nresult = t.ix["Okafor"]',
+     't = df.groupby("grower")["crates"].sum()\nresult = t.loc["Okafor"]'),
+])
+def test_series_ix_keys_read_as_labels(old, new):
+    legacy_differential(old, new)
+
+
 def test_ix_on_no_rows():
     legacy_differential(EMPTY + 'result = df.ix[df["kg"] > 5, ["grower"]]',
                         EMPTY + 'result = df.loc[df["kg"] > 5, ["grower"]]')
@@ -397,6 +408,9 @@ def test_pd_np_without_a_numpy_import_imports_it():
 
 @pytest.mark.parametrize("line", [
     "x = df.ix",
+    't = df.groupby("grower")["crates"].sum()\nv = t.ix[0]',
+    'v = df["kg"].sort_values().ix[1]',
+    'v = df["kg"].ix[1:3]',
     'e = pd.ewma(df["kg"], 3, 2)',
     'e = pd.ewma(df["kg"], span=3, freq="D")',
     "r = pd.rolling_mean(df, 3)",

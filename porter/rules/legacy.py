@@ -580,3 +580,32 @@ def sort_index_by(call: PandasCall, ctx: RuleContext) -> Value:
         kwargs["ascending"] = call.kwargs["ascending"]
     return _as_today("frame.sort_values",
                      PandasCall(call.receiver, "sort_values", (), kwargs, call.node), ctx)
+
+
+@rule("series.ix")
+def series_ix(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.ix[key] -> as s[mask], s.loc["label"] or s.iloc[i], where the Series tells which one
+    .ix read.
+
+    A True/False mask chose rows as s[mask] does; a text was a label (s.loc); a whole number
+    on pandas' labels 0..n-1 (a column of a frame read and not filtered, sorted or indexed
+    since) was a label of that integer index, which is the row's position. Other keys (a
+    whole number of a Series labelled by text, which .ix read as a position, slices, lists)
+    are TODOs (from memory: .ix removed in pandas 1.0).
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    if len(call.args) != 1:
+        raise Unsupported("s.ix with more than one key")
+    key = call.args[0]
+    if isinstance(key, Column) and key.dtype == "bool":
+        return _as_today("series.getitem", PandasCall(column, "getitem", (key,), {}, call.node), ctx)
+    const = key.const if isinstance(key, Opaque) and key.is_const else None
+    if isinstance(const, str):
+        return _as_today("series.loc", PandasCall(column, "loc", (key,), {}, call.node), ctx)
+    if isinstance(const, int) and not isinstance(const, bool) and const >= 0 \
+            and _default_labels(column.frame) and not column.index_values:
+        return _as_today("series.iloc", PandasCall(column, "iloc", (key,), {}, call.node), ctx)
+    raise Unsupported("s.ix[key] with a key other than a mask, a text label or a whole number "
+                      "on labels 0..n-1: .ix read a whole number as a label of an integer index "
+                      "and as a position otherwise; write .loc or .iloc")

@@ -420,7 +420,7 @@ class Evaluator:
             return self.dispatch("frame.getattr", PandasCall(receiver, name, node=node), node)
         if isinstance(receiver, Column) and receiver.element:
             return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
-        if isinstance(receiver, Column) and name in ("iloc", "loc"):
+        if isinstance(receiver, Column) and name in ("iloc", "loc", "ix"):
             return Indexer(Code(self.source(node)), frame=receiver.frame, kind=name,
                            column=receiver, sites=receiver.sites)
         if isinstance(receiver, Column):
