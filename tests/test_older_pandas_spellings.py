@@ -128,6 +128,18 @@ def test_read_csv_error_bad_lines_beside_on_bad_lines_is_a_todo():
     assert "TODO(porter): pd.read_csv: error_bad_lines= beside on_bad_lines=" in converted
 
 
+@pytest.mark.parametrize("old,new,days", [
+    ('df["d"] = pd.to_datetime(df["when"], infer_datetime_format=True)',
+     'df["d"] = pd.to_datetime(df["when"])', '"2024-03-05", "2023-12-31", None, "2024-02-29"'),
+    ('df["d"] = pd.to_datetime(df["when"], format="%d.%m.%Y", infer_datetime_format=False)',
+     'df["d"] = pd.to_datetime(df["when"], format="%d.%m.%Y")',
+     '"05.03.2024", "31.12.2023", None, "29.02.2024"'),
+])
+def test_to_datetime_infer_datetime_format_left_out(old, new, days):
+    frame = f'import pandas as pd\ndf = pd.DataFrame({{"when": [{days}]}})\n'
+    legacy_differential(old + "\nresult = df", new + "\nresult = df", frame=frame)
+
+
 # -- .ix ------------------------------------------------------------------------------------
 
 @pytest.mark.parametrize("old,new", [

@@ -609,3 +609,21 @@ def series_ix(call: PandasCall, ctx: RuleContext) -> Value:
     raise Unsupported("s.ix[key] with a key other than a mask, a text label or a whole number "
                       "on labels 0..n-1: .ix read a whole number as a label of an integer index "
                       "and as a position otherwise; write .loc or .iloc")
+
+
+def without_infer_datetime_format(call: PandasCall, ctx: RuleContext) -> PandasCall:
+    """pd.to_datetime(..., infer_datetime_format=) read as pandas 3.1 reads the call without it
+    (the option was deprecated in pandas 2.0 and removed in 3.0; from memory).
+
+    With it, pandas 1.x guessed one format from the first value and read the values that did
+    not fit it one by one (dateutil); since pandas 2 the guessed format is the only one: a
+    value that does not fit is an error, or NaT with errors="coerce", where pandas 1.x read
+    it (0.9 without format=: the values of one layout are the same).
+    """
+    call.const("infer_datetime_format", None, False, kinds=(bool,))
+    if not call.has("format"):
+        ctx.lower("infer_datetime_format= (pandas 1.x): a value not in the format guessed from "
+                  "the first one was read on its own; since pandas 2 (and here) it is an error, "
+                  "or NaT with errors=\"coerce\"", 0.9)
+    kwargs = {k: v for k, v in call.kwargs.items() if k != "infer_datetime_format"}
+    return PandasCall(call.receiver, call.name, call.args, kwargs, call.node)
