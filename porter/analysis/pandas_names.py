@@ -113,7 +113,11 @@ MODULE = frozenset((
 
 
 # DataFrame methods pandas 2 and 3 removed, which old scripts still call (not from dir())
-FRAME_REMOVED = frozenset(('append', 'applymap', 'iteritems'))
+FRAME_REMOVED = frozenset(('append', 'applymap', 'iteritems', 'as_matrix', 'get_value',
+                           'set_value', 'lookup', 'sort', 'pad', 'backfill'))
+# Series methods pandas removed (rules/legacy.py), read when no method has the name
+SERIES_REMOVED = frozenset(('valid', 'order', 'get_value', 'set_value', 'as_matrix', 'pad',
+                            'backfill', 'iteritems'))
 
 
 def _generate() -> str:  # pragma: no cover - run by hand when pandas changes

@@ -1017,7 +1017,11 @@ def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
     "us" of a column of numbers is pl.from_epoch; a float column's fractions (nanoseconds in
     pandas) are cut to the unit (0.9); other units are TODOs. utc=True of text or epoch
     numbers without a zone of their own: the same times in UTC (_in_utc).
+    infer_datetime_format= (removed in pandas 3) is left out (rules/legacy.py).
     """
+    if "infer_datetime_format" in call.kwargs:
+        from porter.rules.legacy import without_infer_datetime_format
+        call = without_infer_datetime_format(call, ctx)
     ctx.reject_unknown(call, "arg", "errors", "format", "unit", "utc", "dayfirst", positional=1)
     if call.const("utc", None, False, kinds=(bool,)):
         return _in_utc(call, ctx)

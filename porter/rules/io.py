@@ -107,7 +107,22 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     pandas leaves the column as text, except that a column whose values in --data's first 1000
     rows do not all fit is left as text, as pandas leaves it (0.9). An empty header is named "Unnamed: n" only when --data shows
     it; a repeated header name is a TODO then.
+    Older pandas' options (porter/rules/legacy.py): squeeze=True (a file of one column read as
+    that column), error_bad_lines= / warn_bad_lines= (as on_bad_lines=), delim_whitespace=True
+    (as sep=r"\\s+") and infer_datetime_format= (no effect on the values: left out).
     """
+    from porter.rules.legacy import modern_read_csv, squeezed
+    call, squeeze, rewritten = modern_read_csv(call, ctx)
+    try:
+        read = _read_csv(call, ctx)
+    except Unsupported as exc:
+        if not rewritten:
+            raise
+        raise Unsupported(f"{rewritten} in pandas 3 (older pandas' option): {exc.reason}") from None
+    return squeezed(read, ctx) if squeeze else read
+
+
+def _read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     known = {"filepath_or_buffer", "sep", "delimiter", "usecols", "dtype", "parse_dates",
              "dayfirst", "na_values", "keep_default_na", "nrows", "skiprows", "encoding", "header", "names",
              "decimal", "comment", "thousands", "skipinitialspace", "compression",

@@ -81,3 +81,549 @@ def modern_period(freq: object) -> str | None:
     if not isinstance(freq, str):
         return None
     return _modern(freq, PERIOD_ALIASES, period_accepted)
+
+
+# -- calls pandas 2 and 3 removed, read as their modern spelling --------------------------------
+#
+# The meanings below are from memory of pandas' release notes (not looked up here): each rule
+# says which release removed the call and what it became. The rules rewrite the call into its
+# modern spelling and hand it to the rule of that spelling, so everything those rules know
+# (missing values, tied rows, dtypes) holds for the old name too.
+
+from porter.emit import code as emit  # noqa: E402
+from porter.rules import registry, rule  # noqa: E402
+from porter.translate.context import PandasCall, RuleContext, Unsupported  # noqa: E402
+from porter.translate.values import Column, Frame, Opaque, Value  # noqa: E402
+
+
+def _const(value: object) -> Opaque:
+    return Opaque(emit.lit(value), const=value)
+
+
+def _as_today(key: str, call: PandasCall, ctx: RuleContext) -> Value:
+    """Run the rule of today's spelling on the rewritten call."""
+    return registry()[key](call, ctx)
+
+
+# read_csv's options that pandas 2 removed: (from memory) squeeze= deprecated in 1.4 and removed
+# in 2.0 (DataFrame.squeeze("columns") instead); error_bad_lines= / warn_bad_lines= deprecated in
+# 1.3 for on_bad_lines= and removed in 2.0; delim_whitespace= deprecated in 2.2 for sep=r"\s+" and
+# removed in 3.0; infer_datetime_format= deprecated in 2.0 (the format is always guessed from the
+# first value since then) and removed in 3.0.
+READ_CSV_LEGACY = ("squeeze", "error_bad_lines", "warn_bad_lines", "delim_whitespace",
+                   "infer_datetime_format")
+
+
+def modern_read_csv(call: PandasCall, ctx: RuleContext) -> tuple[PandasCall, bool, str]:
+    """read_csv's removed options rewritten as pandas 3.1 spells them; whether squeeze=True
+    asked for a one-column read to be a Series; what was rewritten (for a TODO's reason)."""
+    if not set(READ_CSV_LEGACY) & set(call.kwargs):
+        return call, False, ""
+    notes = []
+    kwargs = dict(call.kwargs)
+    squeeze = bool(call.const("squeeze", None, False, kinds=(bool,)))
+    errors = call.const("error_bad_lines", None, None, kinds=(bool, type(None)))
+    warns = call.const("warn_bad_lines", None, None, kinds=(bool, type(None)))
+    spaces = call.const("delim_whitespace", None, False, kinds=(bool,))
+    call.const("infer_datetime_format", None, False, kinds=(bool,))
+    for name in READ_CSV_LEGACY:
+        kwargs.pop(name, None)
+    if errors is False:
+        # pandas 1.x: error_bad_lines=False left out a row with too many fields, and said so
+        # on stderr unless warn_bad_lines=False: on_bad_lines="warn" / "skip"
+        if "on_bad_lines" in kwargs:
+            raise Unsupported("error_bad_lines= beside on_bad_lines= (pandas raised)")
+        kwargs["on_bad_lines"] = _const("skip" if warns is False else "warn")
+        notes.append(f"error_bad_lines=False is on_bad_lines={kwargs['on_bad_lines'].const!r}")
+    # error_bad_lines=True was the default (a bad row stops the read); warn_bad_lines without
+    # error_bad_lines=False changed nothing
+    if spaces:
+        if {"sep", "delimiter"} & set(kwargs) or len(call.args) > 1:
+            raise Unsupported("delim_whitespace=True beside sep= (pandas raised)")
+        kwargs["sep"] = _const(r"\s+")
+        notes.append('delim_whitespace=True is sep=r"\\s+"')
+    # infer_datetime_format=True only made pandas 1.x parse faster: the dates are the same as
+    # those of pandas 2's guessed format, which parse_dates reads as before
+    return (PandasCall(call.receiver, call.name, call.args, kwargs, call.node), squeeze,
+            "; ".join(notes))
+
+
+def squeezed(read: Value, ctx: RuleContext) -> Value:
+    """read_csv(..., squeeze=True): a file of one column read as that column (a Series), as
+    pandas 1.x returned it; a file of several columns stays a frame."""
+    if not isinstance(read, Frame) or read.columns is None:
+        raise Unsupported("squeeze=True (removed in pandas 2): the read is a Series when the file "
+                          "has one column; porter does not know its columns here (give usecols= "
+                          "or run with --data)")
+    if len(read.columns) != 1:
+        return read
+    name = read.columns[0]
+    return _as_today("frame.getitem.column", PandasCall(read, "getitem", (_const(name),)), ctx)
+
+
+def _column_named(frame: Frame, name: str, ctx: RuleContext) -> Value:
+    return _as_today("frame.getitem.column", PandasCall(frame, "getitem", (_const(name),)), ctx)
+
+
+def _default_labels(frame: Frame) -> bool:
+    """pandas' row labels are still 0..n-1 in order (a label is then the row's position)."""
+    return frame.labels_intact and not frame.index
+
+
+def _names(value: Value) -> list[str] | None:
+    """Column names written in the script: one text or a list of texts."""
+    if isinstance(value, Opaque) and value.is_const:
+        if isinstance(value.const, str):
+            return [value.const]
+        if isinstance(value.const, (list, tuple)) and value.const \
+                and all(isinstance(n, str) for n in value.const):
+            return list(value.const)
+    return None
+
+
+@rule("frame.ix")
+def ix(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.ix[rows, cols] -> as df.loc / df.iloc, where the frame tells which one .ix read:
+    every row (:) or a True/False mask, rows by label on pandas' labels 0..n-1 (a slice of
+    whole numbers, its end included, is the same positions), column names written as text
+    (labels) or whole numbers among text names (positions).
+
+    .ix (deprecated in pandas 0.20, removed in 1.0; from memory) read a key as a label where
+    the axis had such labels and as a position otherwise. pandas' Index._convert_slice_indexer
+    of those releases (read in its source) reads a slice of whole numbers as labels on an
+    integer index, positions on any other: on a frame read and not yet filtered, sorted or
+    indexed, whose labels are 0..n-1, df.ix[a:b] is rows a to b, b included (df.ix[:5] is six
+    rows), and df.ix[i, "c"] the value at row i. Columns named by text read a whole number as
+    a position (df.ix[:, 1], df.ix[:, 0:2] with its end left out, as positions are sliced).
+    Other rows (after a filter or sort, negative bounds, a step, a list of labels, one row),
+    and columns named by numbers are TODOs, which say to write .loc or .iloc.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    rows = call.args[0] if call.args else None
+    cols = call.args[1] if len(call.args) > 1 else None
+    if len(call.args) > 2 or rows is None:
+        raise Unsupported(".ix with more than two keys")
+    label = rows.const if isinstance(rows, Opaque) and rows.is_const else None
+    if isinstance(label, int) and not isinstance(label, bool) and label >= 0 \
+            and isinstance(cols, Opaque) and isinstance(cols.const, str) and _default_labels(frame):
+        # one value: on pandas' integer labels 0..n-1 a whole number was a label (.ix read
+        # labels on an integer index), which is the row's position here
+        column = _column_named(frame, cols.const, ctx)
+        return _as_today("series.iloc", PandasCall(column, "iloc", (rows,), {}, call.node), ctx)
+    every_row = isinstance(label, slice) and label == slice(None)
+    mask = isinstance(rows, Column) and rows.dtype == "bool"
+    if isinstance(label, slice) and not every_row:
+        if not (_default_labels(frame) and label.step in (None, 1) and all(
+                v is None or isinstance(v, int) and not isinstance(v, bool) and v >= 0
+                for v in (label.start, label.stop))):
+            raise Unsupported(".ix[a:b] on a frame whose labels are not 0..n-1 (filtered, sorted "
+                              "or indexed since it was read), or with negative bounds or a step: "
+                              ".ix read labels of an integer index, positions otherwise; write "
+                              ".loc (labels) or .iloc (positions)")
+        # labels a..b, b included: on labels 0..n-1 the positions a..b
+        # (an end before the start chooses no row, as iloc[a:a] does)
+        stop = None if label.stop is None else max(label.stop + 1, label.start or 0)
+        frame = _as_today("frame.iloc", PandasCall(  # type: ignore[assignment]
+            frame, "iloc", (_const(slice(label.start, stop)),), {}, call.node), ctx)
+        rows, every_row = _const(slice(None)), True
+    elif not (every_row or mask):
+        raise Unsupported(".ix[rows] with rows other than `:`, a True/False mask or a slice of "
+                          "whole numbers: .ix read a whole number as a label of an integer "
+                          "index and as a position otherwise, which porter cannot tell here; "
+                          "write .loc (labels) or .iloc (positions)")
+    if cols is None or isinstance(cols, Opaque) and cols.is_const and cols.const == slice(None):
+        if every_row:
+            return frame
+        return _as_today("frame.loc", PandasCall(frame, "loc", (rows,), {}, call.node), ctx)
+    if _names(cols) is not None:
+        return _as_today("frame.loc", PandasCall(frame, "loc", (rows, cols), {}, call.node), ctx)
+    if isinstance(cols, Opaque) and _positions(cols.const) and frame.columns is not None \
+            and all(isinstance(c, str) for c in frame.columns):
+        # whole numbers among columns named by text: positions to .ix
+        if mask:
+            frame = _as_today("frame.loc", PandasCall(  # type: ignore[assignment]
+                frame, "loc", (rows,), {}, call.node), ctx)
+        return _as_today("frame.iloc", PandasCall(frame, "iloc", (_const(slice(None)), cols),
+                                                  {}, call.node), ctx)
+    raise Unsupported(".ix[:, cols] with columns other than names written as text or whole "
+                      "numbers among columns porter knows are named by text; write .loc or .iloc")
+
+
+def _positions(key: object) -> bool:
+    """A whole number, a list of them or a slice of them (None bounds too)."""
+    def whole(v: object) -> bool:
+        return isinstance(v, int) and not isinstance(v, bool)
+    if whole(key):
+        return True
+    if isinstance(key, list):
+        return bool(key) and all(whole(v) for v in key)
+    if isinstance(key, slice):
+        return all(v is None or whole(v) for v in (key.start, key.stop, key.step))
+    return False
+
+
+@rule("frame.ix_setitem")
+def ix_setitem(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.ix[rows, cols] = v -> as df.loc[rows, cols] = v where .ix read labels: every row
+    (:) or a True/False mask, column names written as text.
+
+    The keys are read as frame.ix reads them (from memory: .ix removed in pandas 1.0); whole
+    numbers for the rows or the columns are TODOs (a label or a position). The value is
+    written as pandas 3.1 writes it with .loc: a value pandas 3.1 refuses in a column (0.5
+    into an int column), which older pandas wrote by making the column float, is a TODO there.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    if len(call.args) != 3:
+        raise Unsupported(".ix assignment needs rows and columns")
+    rows, cols, _ = call.args
+    every_row = isinstance(rows, Opaque) and rows.is_const and rows.const == slice(None)
+    if not (every_row or isinstance(rows, Column) and rows.dtype == "bool"):
+        raise Unsupported(".ix[rows] = with rows other than `:` or a True/False mask: .ix read a "
+                          "whole number as a label of an integer index and as a position "
+                          "otherwise; write .loc (labels) or .iloc (positions)")
+    if _names(cols) is None:
+        raise Unsupported(".ix[:, cols] = with columns other than names written as text; write "
+                          ".loc or .iloc")
+    return _as_today("frame.loc_setitem", PandasCall(frame, "loc_setitem", call.args, {},
+                                                     call.node), ctx)
+
+
+@rule("frame.as_matrix")
+def as_matrix(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.as_matrix(columns=None) -> as df[columns].to_numpy() (collected to numpy).
+
+    as_matrix (from memory: deprecated in pandas 0.23 for .values / to_numpy(), removed in
+    1.0) gave the frame's values as one numpy array, of the columns given in their order:
+    the array to_numpy() gives (missing numbers nan, text in an object array).
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "columns", positional=1)
+    if call.has("columns", 0):
+        given = call.arg("columns", 0)
+        if not (isinstance(given, Opaque) and given.is_const and given.const is None):
+            names = _names(given)
+            if names is None or isinstance(given.const, str):  # type: ignore[union-attr]
+                raise Unsupported("as_matrix(columns=) with something other than a list of "
+                                  "column names")
+            frame = _as_today("frame.getitem.columns",  # type: ignore[assignment]
+                            PandasCall(frame, "getitem", (given,)), ctx)
+    return _as_today("frame.to_numpy", PandasCall(frame, "to_numpy", (), {}, call.node), ctx)
+
+
+@rule("frame.get_value")
+def get_value(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.get_value(label, col) -> as df.at[label, col]: on a frame whose row labels are still
+    0..n-1, the value at that position (as s.iloc[i]).
+
+    get_value (from memory: deprecated in pandas 0.21 for .at / .iat, removed in 1.0) read one
+    value by row label and column name. A frame read from a file and not yet filtered or sorted
+    has the labels 0..n-1, so the label is the position; other labels are a TODO.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "index", "col", "takeable", positional=2)
+    label = call.const("index", 0, kinds=(int,))
+    name = call.const("col", 1, kinds=(str,))
+    if call.const("takeable", None, False, kinds=(bool,)):
+        raise Unsupported("get_value(takeable=True) (positions): write .iat")
+    if not _default_labels(frame):
+        raise Unsupported("get_value(label, col) on a frame filtered, sorted or indexed since it "
+                          "was made: its labels are pandas' (write .at[label, col])")
+    if label < 0:
+        raise Unsupported("get_value with a negative label (pandas raises: no such label)")
+    column = _column_named(frame, name, ctx)
+    return _as_today("series.iloc", PandasCall(column, "iloc", (_const(label),), {}, call.node), ctx)
+
+
+@rule("series.valid")
+def valid(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.valid() -> as s.dropna() (the column's rows holding a value).
+
+    Series.valid (from memory: deprecated in pandas 0.23, removed in 1.0) was dropna() under
+    another name.
+    """
+    ctx.reject_unknown(call)
+    return _as_today("series.dropna", PandasCall(call.receiver, "dropna", (), {}, call.node), ctx)
+
+
+@rule("series.order")
+def order(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.order(ascending, na_position, kind) -> as s.sort_values(ascending, na_position, kind).
+
+    Series.order (deprecated in pandas 0.17 for sort_values, removed in 0.20) sorted a copy,
+    missing values last. Its default kind was "quicksort" from pandas 0.15 to 0.19, as
+    sort_values' (the source of those releases says so); before 0.15 it was "mergesort" (a
+    stable sort) and the place of missing values was na_last=True / False, read here as
+    na_position="last" / "first". A script from before 0.15 that relied on tied values
+    keeping their order is read with the later default.
+    """
+    ctx.reject_unknown(call, "na_last", "ascending", "kind", "na_position")
+    kwargs = {k: v for k, v in call.kwargs.items() if k != "na_last"}
+    if call.has("na_last"):
+        if call.has("na_position"):
+            raise Unsupported("order(na_last=, na_position=) (pandas took one of them)")
+        last = call.const("na_last", None, True, kinds=(bool, type(None)))
+        kwargs["na_position"] = _const("first" if last is False else "last")
+    return _as_today("series.sort_values",
+                     PandasCall(call.receiver, "sort_values", (), kwargs, call.node), ctx)
+
+
+@rule("frame.sort")
+def frame_sort(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.sort(columns, ascending, kind, na_position) -> as df.sort_values(by=columns, ...).
+
+    DataFrame.sort (from memory: deprecated in pandas 0.17, removed in 0.20) sorted by the
+    columns given (by the index without them), missing values last, with an unstable
+    quicksort unless told otherwise: sort_values' defaults.
+    Caveats: without columns it sorted by the index: a TODO.
+    """
+    ctx.reject_unknown(call, "columns", "ascending", "kind", "na_position", positional=1)
+    if not call.has("columns", 0):
+        raise Unsupported("sort() without columns sorted by the index: write sort_index()")
+    kwargs = {k: v for k, v in call.kwargs.items() if k != "columns"}
+    kwargs["by"] = call.arg("columns", 0)
+    return _as_today("frame.sort_values",
+                   PandasCall(call.receiver, "sort_values", (), kwargs, call.node), ctx)
+
+
+# pd.rolling_mean(s, n) and its kin: pandas' functions of a window before the .rolling() /
+# .expanding() methods (from memory: deprecated in 0.18, removed in 0.23)
+ROLLING_FUNCTIONS = {f"pd.rolling_{how}": how
+                     for how in ("mean", "sum", "min", "max", "median", "std", "var")}
+EXPANDING_FUNCTIONS = {f"pd.expanding_{how}": how
+                       for how in ("mean", "sum", "min", "max", "std", "var")}
+
+
+@rule(*ROLLING_FUNCTIONS, *EXPANDING_FUNCTIONS)
+def window_function(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.rolling_mean(s, n, min_periods, center) -> as s.rolling(n, min_periods=..,
+    center=..).mean(); pd.expanding_sum(s, min_periods) -> as s.expanding(min_periods).sum().
+
+    The functions took the Series first and the window's options after it, with the defaults
+    the methods kept (min_periods the window's size for rolling, 1 for expanding). freq= and
+    how= (resampling first) are TODOs.
+    """
+    rolling = ctx.key in ROLLING_FUNCTIONS
+    how = ROLLING_FUNCTIONS.get(ctx.key) or EXPANDING_FUNCTIONS[ctx.key]
+    options = ("arg", "window", "min_periods", "freq", "center", "how") if rolling else \
+        ("arg", "min_periods", "freq")
+    extra = ("ddof",) if how in ("std", "var") else ()
+    ctx.reject_unknown(call, *options, *extra, positional=len(options))
+    for name in ("freq", "how"):
+        if name in options and call.has(name, options.index(name)) \
+                and call.const(name, options.index(name), None) is not None:
+            raise Unsupported(f"{name}= (the Series resampled first)")
+    column = call.arg("arg", 0)
+    if not isinstance(column, Column):
+        raise Unsupported("a window over something other than a column")
+    window_options = {name: call.arg(name, options.index(name))
+                      for name in options[1:] if name not in ("freq", "how")
+                      and call.has(name, options.index(name))}
+    kind = "rolling" if rolling else "expanding"
+    window = _as_today(f"series.{kind}", PandasCall(column, kind, (), window_options, call.node), ctx)
+    kwargs = {k: v for k, v in call.kwargs.items() if k in extra}
+    return _as_today(f"series.{kind}.{how}", PandasCall(window, how, (), kwargs, call.node), ctx)
+
+
+@rule("pd.ewma")
+def ewma(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.ewma(s, com= | span= | halflife= | alpha=, min_periods=, adjust=, ignore_na=) -> as
+    s.ewm(...).mean().
+
+    pd.ewma (deprecated in pandas 0.18, removed in 0.23; from memory) was, in 0.18 (read in
+    its source), ensure_compat("ewm", "mean", ...): s.ewm(...).mean() with the same options.
+    The series and com are read by position (alpha came in 0.18, so the later positions
+    differ between releases: they must be named); freq= and how= (resampling first) are
+    TODOs. Before 0.15.2, min_periods blanked the first values from the first present one
+    (later: fewer present values than min_periods): read as the later meaning (0.95).
+    """
+    ctx.reject_unknown(call, "arg", "com", "span", "halflife", "alpha", "min_periods", "freq",
+                       "adjust", "how", "ignore_na", positional=2)
+    for name in ("freq", "how"):
+        if call.has(name) and call.const(name, None, None) is not None:
+            raise Unsupported(f"{name}= (the Series resampled first)")
+    column = call.arg("arg", 0)
+    if not isinstance(column, Column):
+        raise Unsupported("an average over something other than a column")
+    kwargs = {name: call.arg(name, 1 if name == "com" else None)
+              for name in ("com", "span", "halflife", "alpha", "min_periods", "adjust", "ignore_na")
+              if call.has(name, 1 if name == "com" else None)}
+    if call.const("min_periods", None, 0, kinds=(int,)):
+        ctx.lower("min_periods=: before pandas 0.15.2 it blanked the first values after the "
+                  "first present one, since then the values with fewer present ones before "
+                  "them (read so)", 0.95)
+    weights = _as_today("series.ewm", PandasCall(column, "ewm", (), kwargs, call.node), ctx)
+    return _as_today("series.ewm.mean", PandasCall(weights, "mean", (), {}, call.node), ctx)
+
+
+@rule("pd.value_counts")
+def top_value_counts(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.value_counts(s, sort, ascending, normalize, bins, dropna) -> as s.value_counts(...).
+
+    The function (deprecated in pandas 2.1, removed in 3.0; from memory) counted the values
+    of the Series it was given, as the method does, with the same options in another order.
+    """
+    options = ("values", "sort", "ascending", "normalize", "bins", "dropna")
+    ctx.reject_unknown(call, *options, positional=len(options))
+    column = call.arg("values", 0)
+    if not isinstance(column, Column):
+        raise Unsupported("pd.value_counts of something other than a column")
+    kwargs = {name: call.arg(name, i) for i, name in enumerate(options)
+              if i and call.has(name, i)}
+    return _as_today("series.value_counts",
+                     PandasCall(column, "value_counts", (), kwargs, call.node), ctx)
+
+
+@rule("series.pad", "series.backfill", "frame.pad", "frame.backfill")
+def pad_backfill(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.pad() / s.backfill() (and a frame's) -> as s.ffill() / s.bfill().
+
+    pad and backfill (deprecated in pandas 2.0, removed in 3.0; from memory) were ffill and
+    bfill under their older names, with the same options.
+    """
+    owner = "frame" if isinstance(call.receiver, Frame) else "series"
+    today = "ffill" if call.name == "pad" else "bfill"
+    return _as_today(f"{owner}.{today}",
+                     PandasCall(call.receiver, today, call.args, call.kwargs, call.node), ctx)
+
+
+@rule("series.iteritems")
+def series_iteritems(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.iteritems() -> as s.items(): (label, value) pairs.
+
+    Series.iteritems (deprecated in pandas 1.5, removed in 2.0; from memory) was items()
+    under its Python 2 name.
+    """
+    return _as_today("series.items", PandasCall(call.receiver, "items", call.args, call.kwargs,
+                                                call.node), ctx)
+
+
+# -- a call kept on pandas, written as pandas 3.1 spells it -------------------------------------
+#
+# A call porter keeps on pandas (a TODO, or a value only pandas gives) runs on pandas 3.1,
+# which no longer has the older names: the hand-over writes today's spelling of the same call
+# (handover.pandas_fallback), as it writes today's frequency aliases. Only calls whose receiver
+# is a pandas value, and only spellings with one meaning, are rewritten.
+
+_RENAMED_METHODS = {"iteritems": "items", "applymap": "map", "valid": "dropna", "pad": "ffill",
+                    "backfill": "bfill"}
+
+
+def modern_method(name: str, args: list[tuple[str | None, str]]) -> str | None:
+    """`.name(args)` of a pandas frame or Series as pandas 3.1 writes it (the text after the
+    receiver), given the arguments as (keyword or None, text); None when there is nothing to
+    rewrite or no one way to."""
+    positional = [text for keyword, text in args if keyword is None]
+    keywords = {keyword: text for keyword, text in args if keyword is not None}
+    if name in _RENAMED_METHODS:
+        written = [text if keyword is None else f"{keyword}={text}" for keyword, text in args]
+        return f".{_RENAMED_METHODS[name]}({', '.join(written)})"
+    if name == "as_matrix" and len(args) <= 1 and set(keywords) <= {"columns"}:
+        columns = positional[0] if positional else keywords.get("columns")
+        if columns in (None, "None"):
+            return ".to_numpy()"
+        # a list of names (a text would choose a Series: not what as_matrix read)
+        return f"[{columns}].to_numpy()" if columns.startswith("[") else None
+    if name == "get_value" and len(positional) == 2 and not keywords:
+        return f".at[{positional[0]}, {positional[1]}]"
+    return None
+
+
+@rule("pd.rolling_apply", "pd.expanding_apply")
+def window_apply_function(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.rolling_apply(s, n, func, min_periods, freq, center) -> as s.rolling(n, ...).apply(
+    func, raw=True); pd.expanding_apply(s, func, min_periods) -> as s.expanding(...).apply(
+    func, raw=True).
+
+    The functions (deprecated in pandas 0.18, removed in 0.23; from memory) called func on
+    each window as a numpy array, which is raw=True (the default raw=False of today passes a
+    Series). freq= (resampling first), args= and kwargs= are TODOs.
+    """
+    rolling = ctx.key == "pd.rolling_apply"
+    options = ("arg", "window", "func", "min_periods", "freq", "center", "args", "kwargs") \
+        if rolling else ("arg", "func", "min_periods", "freq", "args", "kwargs")
+    ctx.reject_unknown(call, *options, positional=len(options))
+    for name in ("freq", "args", "kwargs"):
+        at = options.index(name)
+        if call.has(name, at) and call.const(name, at, None) not in (None, (), {}):
+            raise Unsupported(f"{name}= of pd.{ctx.key[3:]}")
+    column = call.arg("arg", 0)
+    if not isinstance(column, Column):
+        raise Unsupported("a window over something other than a column")
+    window_options = {name: call.arg(name, options.index(name))
+                      for name in ("window", "min_periods", "center")
+                      if name in options and call.has(name, options.index(name))}
+    kind = "rolling" if rolling else "expanding"
+    window = _as_today(f"series.{kind}", PandasCall(column, kind, (), window_options, call.node), ctx)
+    func = call.arg("func", options.index("func"))
+    return _as_today(f"series.{kind}.apply", PandasCall(
+        window, "apply", (func,), {"raw": _const(True)}, call.node), ctx)
+
+
+def sort_index_by(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.sort_index(by=cols, ascending=) -> as df.sort_values(cols, ascending=) (the frame's
+    sort_index rule hands it here).
+
+    sort_index(by=) (deprecated in pandas 0.17, removed by 1.0; from memory) was, in the
+    source of 0.20 (read), sort_values(by, axis=axis, ascending=ascending, inplace=inplace):
+    kind= and na_position= were not passed on (sort_values' defaults), level= beside by=
+    raised.
+    """
+    ctx.reject_unknown(call, "by", "axis", "ascending", "inplace", "kind", "na_position")
+    if call.const("axis", None, 0, kinds=(int, str)) not in (0, "index", "rows"):
+        raise Unsupported("sort_index(by=, axis=1)")
+    kwargs = {"by": call.kwargs["by"]}
+    if "ascending" in call.kwargs:
+        kwargs["ascending"] = call.kwargs["ascending"]
+    return _as_today("frame.sort_values",
+                     PandasCall(call.receiver, "sort_values", (), kwargs, call.node), ctx)
+
+
+@rule("series.ix")
+def series_ix(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.ix[key] -> as s[mask], s.loc["label"] or s.iloc[i], where the Series tells which one
+    .ix read.
+
+    A True/False mask chose rows as s[mask] does; a text was a label (s.loc); a whole number
+    on pandas' labels 0..n-1 (a column of a frame read and not filtered, sorted or indexed
+    since) was a label of that integer index, which is the row's position. Other keys (a
+    whole number of a Series labelled by text, which .ix read as a position, slices, lists)
+    are TODOs (from memory: .ix removed in pandas 1.0).
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    if len(call.args) != 1:
+        raise Unsupported("s.ix with more than one key")
+    key = call.args[0]
+    if isinstance(key, Column) and key.dtype == "bool":
+        return _as_today("series.getitem", PandasCall(column, "getitem", (key,), {}, call.node), ctx)
+    const = key.const if isinstance(key, Opaque) and key.is_const else None
+    if isinstance(const, str):
+        return _as_today("series.loc", PandasCall(column, "loc", (key,), {}, call.node), ctx)
+    if isinstance(const, int) and not isinstance(const, bool) and const >= 0 \
+            and _default_labels(column.frame) and not column.index_values:
+        return _as_today("series.iloc", PandasCall(column, "iloc", (key,), {}, call.node), ctx)
+    raise Unsupported("s.ix[key] with a key other than a mask, a text label or a whole number "
+                      "on labels 0..n-1: .ix read a whole number as a label of an integer index "
+                      "and as a position otherwise; write .loc or .iloc")
+
+
+def without_infer_datetime_format(call: PandasCall, ctx: RuleContext) -> PandasCall:
+    """pd.to_datetime(..., infer_datetime_format=) read as pandas 3.1 reads the call without it
+    (the option was deprecated in pandas 2.0 and removed in 3.0; from memory).
+
+    With it, pandas 1.x guessed one format from the first value and read the values that did
+    not fit it one by one (dateutil); since pandas 2 the guessed format is the only one: a
+    value that does not fit is an error, or NaT with errors="coerce", where pandas 1.x read
+    it (0.9 without format=: the values of one layout are the same).
+    """
+    call.const("infer_datetime_format", None, False, kinds=(bool,))
+    if not call.has("format"):
+        ctx.lower("infer_datetime_format= (pandas 1.x): a value not in the format guessed from "
+                  "the first one was read on its own; since pandas 2 (and here) it is an error, "
+                  "or NaT with errors=\"coerce\"", 0.9)
+    kwargs = {k: v for k, v in call.kwargs.items() if k != "infer_datetime_format"}
+    return PandasCall(call.receiver, call.name, call.args, kwargs, call.node)

@@ -800,9 +800,13 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: a missing key last (na_position="last"); text by code point in both.
     Caveats: labels after a filter or a sort (row numbers porter does not keep), labels that
     may repeat (pandas' quicksort puts ties in no set order), several keys, axis=1, level=,
-    key= and na_position="first" are TODOs.
+    key= and na_position="first" are TODOs. sort_index(by=...) of older pandas is
+    sort_values (rules/legacy.py).
     """
     from porter.rules.selection import unique_key
+    if "by" in call.kwargs and isinstance(call.receiver, Frame):
+        from porter.rules.legacy import sort_index_by
+        return sort_index_by(call, ctx)  # sort_index(by=...): older pandas' sort_values
     receiver = call.receiver
     if isinstance(receiver, Column):
         receiver = values_fixed(receiver)  # a running sum keeps the values of the rows in order

@@ -1103,7 +1103,7 @@ class _Walker:
             if before is None or env.get(name) is not before:
                 continue  # not waiting, or rebound by the statement itself
             assert name is not None
-            what = "" if what in ("setitem", "loc", "iloc") else what
+            what = "" if what in ("setitem", "loc", "iloc", "ix") else what
             env[name] = PandasValue(emit.atom(name), frame=None if stays else _after_change(
                 name, before.frame, stmt, what, self.dtype_names, self.period_names))
 
@@ -1473,8 +1473,9 @@ class _Walker:
     def set_item(self, target: cst.Subscript, value: Value, env: dict[str, Value],
                  evaluator: Evaluator, indent: str) -> tuple[str | None, list[SiteDraft]] | None:
         owner = target.value
-        if isinstance(owner, cst.Attribute) and owner.attr.value in ("loc", "iloc") \
+        if isinstance(owner, cst.Attribute) and owner.attr.value in ("loc", "iloc", "ix") \
                 and isinstance(owner.value, cst.Name):
+            # (.ix: pandas' label-or-position writes before 1.0, rules/legacy.py)
             frame = evaluator.eval(owner.value)
             if not isinstance(frame, Frame):
                 return None
@@ -2455,7 +2456,7 @@ def _rewritten_change(target: cst.BaseExpression, value: Value, stmt: cst.BaseSm
     if isinstance(target, cst.Subscript):
         if isinstance(owner, cst.Name):
             return True
-        return isinstance(owner, cst.Attribute) and owner.attr.value in ("loc", "iloc") \
+        return isinstance(owner, cst.Attribute) and owner.attr.value in ("loc", "iloc", "ix") \
             and isinstance(owner.value, cst.Name) and not isinstance(stmt, cst.Del)
     if isinstance(owner, cst.Attribute) and owner.attr.value == "columns" \
             and isinstance(target, cst.Attribute) and target.attr.value == "name":

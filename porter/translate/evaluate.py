@@ -372,6 +372,13 @@ class Evaluator:
         return derived_column(columns[0], code, dtype="str", others=columns[1:], name=None) \
             .with_sites(*(x for p in parts for x in p.sites))
 
+    def numpy_name(self) -> str:
+        """The name the script imports numpy as ("np" when it does not)."""
+        for name, value in self.env.items():
+            if isinstance(value, Module) and value.qualname == "numpy":
+                return name
+        return NUMPY_NAME
+
     # -- attributes -----------------------------------------------------------------------------
     def _eval_Attribute(self, node: cst.Attribute) -> Value:
         name = node.attr.value
@@ -387,13 +394,19 @@ class Evaluator:
             receiver = receiver.whole  # parts kept as columns, read as a whole (parts.head())
         if isinstance(receiver, Module):
             qualname = f"{receiver.qualname}.{name}"
+            if qualname == "pandas.np":
+                # pandas' re-export of numpy (removed in pandas 2.0): pd.np.log is np.log,
+                # written with the script's numpy name (imports.fix_imports adds numpy's
+                # import when the script had none)
+                return Module(emit.atom(self.numpy_name()), qualname="numpy", sites=receiver.sites)
             if qualname in ("numpy.nan", "numpy.NaN", "pandas.NA", "pandas.NaT"):
                 return self.opaque(node, math.nan)
             if qualname == "numpy.inf":
                 return self.opaque(node, math.inf)
             return Module(Code(self.source(node)), qualname=qualname, sites=receiver.sites)
         if isinstance(receiver, Frame):
-            if name in ("loc", "iloc"):
+            if name in ("loc", "iloc") or name == "ix" and name not in (receiver.columns or ()):
+                # (.ix: label-or-position indexing pandas 1.0 removed, rules/legacy.py)
                 return Indexer(Code(self.source(node)), frame=receiver, kind=name,
                                sites=receiver.sites)
             if name in pandas_names.FRAME and name not in _FRAME_PROPERTIES \
@@ -407,14 +420,15 @@ class Evaluator:
             return self.dispatch("frame.getattr", PandasCall(receiver, name, node=node), node)
         if isinstance(receiver, Column) and receiver.element:
             return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
-        if isinstance(receiver, Column) and name in ("iloc", "loc"):
+        if isinstance(receiver, Column) and name in ("iloc", "loc", "ix"):
             return Indexer(Code(self.source(node)), frame=receiver.frame, kind=name,
                            column=receiver, sites=receiver.sites)
         if isinstance(receiver, Column):
             if name in ("str", "dt"):
                 return Accessor(Code(self.source(node)), column=receiver, kind=name,
                                 sites=receiver.sites)
-            if name in pandas_names.SERIES and name not in _SERIES_PROPERTIES:
+            if name in pandas_names.SERIES and name not in _SERIES_PROPERTIES \
+                    or name in pandas_names.SERIES_REMOVED:
                 return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
             if name == "index":
                 self.note_labels_read(receiver.frame)
@@ -1525,6 +1539,7 @@ _VALUE_FUNCTIONS = frozenset({"pandas.isna", "pandas.isnull", "pandas.notna", "p
 
 # numpy scalars porter reads even without pandas values in the call (np.timedelta64(1, "h"))
 _NUMPY_SCALARS = frozenset({"numpy.timedelta64"})
+NUMPY_NAME = "np"  # numpy's name in a conversion of a script that reached it through pd.np only
 
 
 def _module_key(qualname: str) -> str:

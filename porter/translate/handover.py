@@ -17,7 +17,8 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.translate.context import PandasCall
 from porter.translate.values import (
-    Accessor, BoundMethod, Column, Frame, Grouped, Indexer, Items, Opaque, Parts, Value, is_pandas,
+    Accessor, BoundMethod, Column, Frame, Grouped, Indexer, Items, Opaque, PandasValue, Parts, Value,
+    is_pandas,
 )
 
 
@@ -392,6 +393,9 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
         func = node.func
         if call.receiver is not None and isinstance(func, cst.Attribute):
             receiver = to_pandas(call.receiver).wrapped(emit.ATOM)
+            modern = _modern_method(call, node, args)
+            if modern is not None:  # a method pandas 3 removed (rules/legacy.py)
+                return Code(f"{receiver}{modern}")
             return Code(f"{receiver}.{func.attr.value}({', '.join(args)})")
         return Code(f"{source(func)}({', '.join(args)})")
     if isinstance(node, cst.Attribute) and call.receiver is not None:
@@ -416,7 +420,7 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
                 parts.append(source(element.slice))
         inner = ", ".join(parts)
         base = to_pandas(receiver).wrapped(emit.ATOM)
-        if isinstance(node.value, cst.Attribute) and node.value.attr.value in ("loc", "iloc") \
+        if isinstance(node.value, cst.Attribute) and node.value.attr.value in ("loc", "iloc", "ix") \
                 and isinstance(receiver, (Frame, Column)):  # s.iloc[-1] is no s[-1] (a label)
             base = f"{base}.{node.value.attr.value}"
         return Code(f"{base}[{inner}]")
@@ -436,6 +440,22 @@ _FREQUENCY_ARGS = {
     "Grouper": ("freq", None, "offset"),
     "to_period": ("freq", 0, "period"), "period_range": ("freq", 3, "period"),
 }
+
+
+def _modern_method(call: PandasCall, node: cst.Call, args: list[str]) -> str | None:
+    """A method pandas 3 removed, called on a frame or Series kept on pandas, as pandas 3.1
+    writes it (rules/legacy.py): iteritems() is items(), get_value(i, c) is .at[i, c]."""
+    from porter.rules.legacy import modern_method
+    func = node.func
+    if not isinstance(func, cst.Attribute) or not isinstance(call.receiver, (Frame, Column,
+                                                                             PandasValue)):
+        return None
+    if len(args) != len(node.args) or any(arg.star for arg in node.args):
+        return None
+    given = [(arg.keyword.value if arg.keyword else None,
+              text.split("=", 1)[1] if arg.keyword else text)
+             for arg, text in zip(node.args, args)]
+    return modern_method(func.attr.value, given)
 
 
 def modern_frequencies(node: cst.CSTNode) -> dict[int, str]:

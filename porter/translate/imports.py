@@ -80,6 +80,7 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
     used but the conversion no longer does (np.where became pl.when): importing numpy costs
     time and memory. An import the original did not use either stays as the user wrote it."""
     module = plain_date_constants(module, facts)
+    module = _numpy_through_pandas(module, facts)
     used = names_used(module)
     if GROUP_MEAN_FUNCTION in used:
         used.add(GROUP_SUM_FUNCTION)  # the mean's definition calls it
@@ -118,6 +119,10 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
         body.append(stmt)
     if not inserted:
         body = _insert_at_top(body)
+    if _reaches_numpy_through_pandas(used, facts, original):
+        # pd.np.log became np.log (pandas 2 removed pd.np): numpy imported as the script had not
+        body = _insert_after_imports(body, cst.SimpleStatementLine(body=[cst.Import(names=[
+            cst.ImportAlias(name=cst.Name("numpy"), asname=cst.AsName(name=cst.Name("np")))])]))
     for constant, definition in ((CSV_LISTS_CONSTANT, CSV_LISTS_DEFINITION),
                                  (CSV_NUMBER_LISTS_CONSTANT, CSV_NUMBER_LISTS_DEFINITION),
                                  (CSV_INTS_CONSTANT, CSV_INTS_DEFINITION),
@@ -169,6 +174,38 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
     if NA_CONSTANT in used and not _defines(module, NA_CONSTANT):
         body = _insert_after_imports(body, _na_constant())
     return module.with_changes(body=body)
+
+
+class _PandasNumpy(cst.CSTTransformer):
+    """pd.np -> np wherever the conversion still has it (a statement kept on pandas)."""
+
+    def __init__(self, pandas: set[str], numpy: str) -> None:
+        self.pandas, self.numpy = pandas, numpy
+
+    def leave_Attribute(self, original: cst.Attribute, updated: cst.Attribute) -> cst.BaseExpression:
+        if updated.attr.value == "np" and isinstance(updated.value, cst.Name) \
+                and updated.value.value in self.pandas:
+            return cst.Name(self.numpy)
+        return updated
+
+
+def _numpy_through_pandas(module: cst.Module, facts: ImportFacts) -> cst.Module:
+    """pandas' re-export of numpy (pd.np, removed in pandas 2.0) written as numpy itself, in
+    the code porter kept as the script wrote it too: pandas 3 has no pd.np."""
+    pandas = {n for n, q in facts.names.items() if q == "pandas"}
+    if not pandas or ".np" not in module.code:
+        return module
+    numpy = next((n for n, q in facts.names.items() if q == "numpy"), "np")
+    return module.visit(_PandasNumpy(pandas, numpy))
+
+
+def _reaches_numpy_through_pandas(used: set[str], facts: ImportFacts,
+                                  original: cst.Module | None) -> bool:
+    """The conversion names np (written for pd.np) where the script imported no numpy and did
+    not use the name np itself."""
+    if "np" not in used or any(q == "numpy" for q in facts.names.values()):
+        return False
+    return original is None or "np" not in names_used(original)
 
 
 def _defines(module: cst.Module, name: str) -> bool:
