@@ -245,6 +245,53 @@ def pandas_to_datetime(text, coerce):
     return read(pl.coalesce(guessed if coerce else [*guessed, text]), not coerce)
 
 
+def pandas_sort_values(frame, by, descending=False, nulls_last=True):
+    """The frame sorted by one column (a name or an expression) in the order pandas'
+    sort_values gives: pandas sorts numbers, True/False and dates with numpy's quicksort, which
+    does not keep tied rows in their order (Polars' sort does); missing values (NaN too) come
+    first or last, in their order. Text is sorted stably by pandas, as by Polars."""
+
+    def positions(values):
+        # each row's position in pandas' order
+        if values.dtype.is_float():
+            values = values.fill_nan(None)  # NaN is missing to pandas
+        if not (values.dtype.is_numeric() or values.dtype in (
+                pl.Boolean, pl.Date, pl.Datetime, pl.Duration)):
+            rank = values.rank("ordinal", descending=descending).cast(pl.Int64)
+            missing = values.is_null().cum_sum().cast(pl.Int64)
+            if nulls_last:
+                return rank.fill_null(missing + values.len() - values.null_count())
+            return (rank + values.null_count()).fill_null(missing)
+        import numpy as np
+
+        # the values as pandas holds them: integers with a missing value are floats, and
+        # True/False with a missing value are objects (each is sorted another way by numpy)
+        numbers = values.drop_nulls().to_numpy()
+        if values.dtype.is_integer() and values.has_nulls():
+            numbers = numbers.astype(np.float64)
+        elif values.dtype == pl.Boolean and values.has_nulls():
+            numbers = numbers.astype(object)
+        rows = np.flatnonzero(values.is_not_null().to_numpy())
+        if descending:  # as pandas' nargsort: reversed, sorted, reversed again
+            order = rows[::-1][numbers[::-1].argsort(kind="quicksort")][::-1]
+        else:
+            order = rows[numbers.argsort(kind="quicksort")]
+        missing = np.flatnonzero(values.is_null().to_numpy())
+        order = np.concatenate([order, missing] if nulls_last else [missing, order])
+        key = np.empty(len(order), dtype=np.int64)
+        key[order] = np.arange(len(order))
+        return pl.Series(values.name, key)
+
+    # a column of its own: Polars merges consecutive sorts, and would compute the positions
+    # from the rows before an earlier sort
+    by = pl.col(by) if isinstance(by, str) else by
+    return (
+        frame.with_columns(by.map_batches(positions, return_dtype=pl.Int64).alias("_pandas_order"))
+        .sort("_pandas_order")
+        .drop("_pandas_order")
+    )
+
+
 # The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
 # off: Polars' strip_chars() leaves the separators \x1c-\x1f.
 PANDAS_WHITESPACE = (
@@ -529,13 +576,23 @@ def main():
         .drop("_porter_rows_in_key_order")
         .sort("zone")
     )
-    per_zone = per_zone.collect().to_pandas()
-    # TODO(porter): frame.labels: pandas code reads the row labels of `per_zone` later, which are the
-    #   original row numbers after a filter or sort: pandas makes it; to port it, keep the row number as
-    #   a column (with_row_index) where the frame is read and use that column where the labels are read
-    per_zone = per_zone.sort_values("cm_per_day", ascending=False)
-    per_zone.to_parquet("zone_melt.parquet")
-    print(per_zone)
+    per_zone = (
+        per_zone
+        .with_row_index("index")
+        .with_columns(pl.col("index").cast(pl.Int64))
+        .pipe(pandas_sort_values, "cm_per_day", descending=True)
+        .collect()
+        .lazy()
+    )
+    (
+        per_zone
+        .collect()
+        .to_pandas()
+        .set_index("index")
+        .rename_axis(None)
+        .to_parquet("zone_melt.parquet")
+    )
+    print(per_zone.collect())
     print(
         suspicious.select(pl.len()).collect().item(),
         "suspicious readings;",
