@@ -565,3 +565,33 @@ def test_melt_of_integer_labels_beside_text_labels_is_a_todo(tmp_path):
     ''', data_dir=str(tmp_path))
     assert any(s.key == "frame.melt" and s.status == "todo" for s in result.sites), \
         result.converted_text
+
+
+# -- the row total of a pivoted table --------------------------------------------------------
+
+@pytest.mark.parametrize("made", [
+    'df.groupby(["shop", "kind"])["n"].sum().unstack()',  # a missing combination: float cells
+    'df.groupby(["shop", "kind"])["n"].sum().unstack(fill_value=0)',
+    'df.groupby(["shop", "kind"])["qty"].mean().unstack()',  # NaN means and missing cells
+    'df.groupby(["shop", "kind"])["qty"].sum().unstack(fill_value=0)',
+    'df.groupby(["shop", "kind", "size"])["n"].sum().unstack()',
+    'df[df["shop"] == "zzz"].groupby(["shop", "kind"])["n"].sum().unstack()',  # no rows, no columns
+    'pd.crosstab(df["shop"], df["kind"])',
+    'pd.crosstab(df["shop"], df["kind"], margins=True)',
+    'pd.crosstab(df["shop"], df["kind"], normalize="index")',
+])
+def test_row_total_of_a_pivoted_table_matches_pandas(made: str) -> None:
+    # wide["total"] = wide.sum(axis=1): the columns are the data's, every one a number
+    source = FRAME + f'wide = {made}\nwide["total"] = wide.sum(axis=1)\nresult = wide.reset_index()\n'
+    result = differential(source)
+    assert not [s for s in result.todos if s.key in ("frame.sum", "frame.setitem")], \
+        result.converted_text
+    assert "pl.sum_horizontal(" in result.converted_text
+
+
+def test_row_total_of_a_pivoted_table_changed_since_is_not_assumed_numbers() -> None:
+    # after astype(str) the cells are text: pandas would join them, porter does not sum
+    source = FRAME + ('wide = df.groupby(["shop", "kind"])["n"].sum().unstack(fill_value=0)\n'
+                      'wide = wide.astype(str)\n'
+                      'result = wide.sum(axis=1)\n')
+    assert "pl.sum_horizontal(" not in convert(source).converted_text

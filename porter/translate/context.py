@@ -299,6 +299,16 @@ def with_row_labels(frame: Frame) -> Frame:
                    dtypes=(*frame.dtypes, (ROW_LABELS, "int")))
 
 
+def number_cells(frame: Frame) -> tuple[bool, str | None]:
+    """Whether every column of `frame` but its index keys holds numbers (a pivoted table as
+    unstack or crosstab made it, nothing done to it since), and their type when porter knows
+    it."""
+    mark = frame.number_cells
+    if mark is None or mark[0] != frame.code.text or frame.columns is not None:
+        return False, None
+    return True, mark[1]
+
+
 def row_labels_carried(frame: Frame) -> bool:
     """Whether `frame` holds the row labels a filter or sort left in its column "index"
     (with_row_labels)."""

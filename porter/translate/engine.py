@@ -1985,7 +1985,11 @@ class _Walker:
         if isinstance(value, Frame):
             self.note_stale_series(name, value, env)
             self.note_parents(code, env)
-            env[name] = replace(value, code=emit.atom(name), sites=(), binding=self.statement_key)
+            cells = value.number_cells
+            if cells is not None:  # still the pivoted table, now under its name
+                cells = (name, cells[1]) if cells[0] == code.text else None
+            env[name] = replace(value, code=emit.atom(name), sites=(), binding=self.statement_key,
+                                number_cells=cells)
             if self.emit_code and (self.computed_once() or self.read_changed_later()) \
                     and not _is_collected(code):
                 code = code.method("collect").method("lazy")
