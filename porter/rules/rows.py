@@ -12,7 +12,7 @@ from porter.rules.elementwise import keys_of_column_type
 from porter.rules import rule
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, column_of, derive, derived_column,
-    values_fixed, without_index,
+    row_labels_carried, values_fixed, without_index,
 )
 from porter.translate.values import Column, Frame, Opaque, Value, fresh_token
 
@@ -824,6 +824,18 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
         if not ascending:
             kwargs["descending"] = True
         code = frame.code.method("sort", key, **kwargs)
+    elif len(frame.index) == 1 and frame.dtype(frame.index[0]) == "str" \
+            and not row_labels_carried(frame):
+        # text labels that may repeat (set_index, read_csv(index_col=)): pandas' str dtype
+        # sorts them stably (pyarrow's sort), rows of one label in their order, as
+        # maintain_order=True does, both ways
+        ctx.lower("rows of one label keep their order, as pandas' str dtype backed by pyarrow "
+                  "sorts them; pandas without pyarrow sorts with numpy's quicksort, which puts "
+                  "them in no set order", 0.95)
+        kwargs = {"nulls_last": True, "maintain_order": True}
+        if not ascending:
+            kwargs["descending"] = True
+        code = frame.code.method("sort", frame.index[0], **kwargs)
     else:
         raise ctx.todo("row labels that are original row numbers after a filter or sort, or "
                        "keys that may repeat: keep them in a column (with_row_index) and sort "

@@ -339,6 +339,8 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
         frame = derive(frame, code, same_rows=False)
     elif isinstance(rows, Column):
         frame = derive(frame, frame.code.method("filter", ctx.expr(rows, frame)), same_rows=False)
+    elif _one_label(rows) and isinstance(cols, Opaque) and isinstance(cols.const, str):
+        return _labelled_value(frame, rows, cols, ctx)  # df.loc["label", "c"], as df.at
     elif not (isinstance(rows, Opaque) and rows.const == slice(None)):
         raise Unsupported("rows chosen by index label: the index is not data in Polars")
     if cols is None or (isinstance(cols, Opaque) and cols.const == slice(None)):
@@ -354,6 +356,53 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(cols, Opaque) and isinstance(cols.const, slice):
         return _column_label_slice(frame, cols.const)
     raise Unsupported("columns chosen by something other than names")
+
+
+@rule("frame.at")
+def frame_at(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.at["label", "c"] -> df.filter(pl.col(key) == "label").select("c").collect().item(),
+    on a table labelled by one key column (set_index, read_csv(index_col=), a groupby's keys,
+    crosstab, pivot_table).
+
+    Handles: a label no row holds raises, as in pandas (KeyError there).
+    Caveats: the value is Python's: None for a missing value where pandas gives nan, an int
+    where pandas gives numpy's int64 (which divides by zero to inf); a label several rows hold
+    raises where pandas gives a Series of their values (0.9). Labels of several keys, row
+    numbers and a label of another type than the key are TODOs."""
+    frame = frame_of(call)
+    if len(call.args) != 2:
+        raise ctx.todo("one label and one column name: df.at[label, column]")
+    rows, cols = call.args
+    if not (_one_label(rows) and isinstance(cols, Opaque) and isinstance(cols.const, str)):
+        raise ctx.todo("one label and one column name written in the script")
+    return _labelled_value(frame, rows, cols, ctx)
+
+
+def _one_label(value: Value) -> bool:
+    return isinstance(value, Opaque) and value.is_const and isinstance(value.const, (str, int)) \
+        and not isinstance(value.const, bool)
+
+
+def _labelled_value(frame: Frame, label: Opaque, col: Opaque, ctx: RuleContext) -> Value:
+    """The value of column `col` on the row labelled `label` of a table labelled by one key
+    column: the one row whose key is the label, its value read with item() (which raises
+    unless exactly one row has the label)."""
+    if len(frame.index) != 1 or row_labels_carried(frame):
+        raise ctx.todo("rows chosen by index label: the index is not data in Polars (one key "
+                       "column holding the labels is ported)")
+    key, name = frame.index[0], col.const
+    kinds = {str: "str", int: "int"}
+    if kinds.get(type(label.const)) != frame.dtype(key):
+        raise ctx.todo("a label of another type than the key column (or a key of unknown type)")
+    if name == key or frame.columns is not None and name not in frame.columns:
+        raise ctx.todo(f"{name!r} is not a column of the frame (pandas raises KeyError)")
+    ctx.lower("the value is Python's: None for a missing value where pandas gives nan, an int "
+              "where pandas gives numpy's int64; a label several rows hold raises where pandas "
+              "gives a Series of their values", 0.9)
+    code = frame.code.method("filter", emit.binop(emit.col(key), "==", emit.lit(label.const))) \
+        .method("select", name).method("collect").method("item")
+    pytype = frame.dtype(name)
+    return Scalar(code, pytype=pytype if pytype in ("int", "float", "str", "bool") else None)
 
 
 def _column_label_slice(frame: Frame, piece: slice) -> Frame:

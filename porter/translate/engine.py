@@ -28,7 +28,7 @@ from porter.translate.functions import (
 from porter.rules.assign import FRAME_STAYS_PANDAS, INTERVAL_MAKERS
 from porter.translate.writes import FileChanges, FreshSchemas, batch_writes, is_sink_text
 from porter.translate.context import (
-    PandasCall, Unsupported, expr_in, grouping_code, select_columns, value_dtype,
+    PandasCall, Unsupported, expr_in, grouping_code, labelled_frame, select_columns, value_dtype,
     with_column_updates, with_row_labels,
 )
 from porter.translate.evaluate import Evaluator, Services, parts_current
@@ -2056,14 +2056,9 @@ class _Walker:
                                  "changed: pandas computes it", *self.services.statement_lines)
                 return emit.layout_chain(code, indent, f"{name} = "), [*value.sites, site]
         elif isinstance(value, Indexed) and not value.grouped and self.changed_later(name):
-            # changed in place later (df["c"] = ..., df.sort_index(inplace=True)): pandas
-            # holds it, with its labels
-            env[name] = PandasValue(emit.atom(name))
-            site = SiteDraft("frame.set_index", "handover", "todo", 0.0,
-                             f"`{name}` keeps its row labels and is changed in place later: "
-                             "pandas holds it; keep the key as a column and port the changes",
-                             *self.services.statement_lines)
-            return emit.layout_chain(value.code, indent, f"{name} = "), [*value.sites, site]
+            # changed in place later (df["c"] = ..., df.sort_index(inplace=True)): the table
+            # labelled by the key, its column held as the index, as a groupby's keys are
+            return self.bind(name, labelled_frame(value.frame, value.key), env, indent)
         elif isinstance(value, Indexed) and not value.grouped:
             # `df = df.set_index("ts")`: the name holds the Polars frame (the column kept);
             # pandas code porter does not port gets it with its labels set again

@@ -25,7 +25,8 @@ from porter.model import MappingEntry, SiteDraft
 from porter.translate import handover
 from porter.translate.rewrite import BINARY_OPS, ChildRewriter, precedence
 from porter.translate.context import (
-    MIXED_COLUMN, PandasCall, RuleContext, Unsupported, derived_column, lost_float_ints,
+    MIXED_COLUMN, PandasCall, RuleContext, Unsupported, derived_column, labelled_frame,
+    lost_float_ints,
 )
 from porter.translate.values import (
     MISSING, Accessor, BoundMethod, Column, Frame, FrameList, Grouped, Indexed, Indexer, Items,
@@ -392,8 +393,13 @@ class Evaluator:
             if qualname == "numpy.inf":
                 return self.opaque(node, math.inf)
             return Module(Code(self.source(node)), qualname=qualname, sites=receiver.sites)
+        if isinstance(receiver, Indexed) and not receiver.grouped \
+                and name not in _INDEXED_METHODS[False]:
+            # df.set_index(k).<anything but resample / groupby / reset_index>: the table
+            # labelled by k, its key column held as the index
+            receiver = labelled_frame(receiver.frame, receiver.key)
         if isinstance(receiver, Frame):
-            if name in ("loc", "iloc"):
+            if name in ("loc", "iloc", "at"):
                 return Indexer(Code(self.source(node)), frame=receiver, kind=name,
                                sites=receiver.sites)
             if name in pandas_names.FRAME and name not in _FRAME_PROPERTIES \
@@ -876,6 +882,8 @@ class Evaluator:
         if isinstance(receiver, Indexer):
             call = PandasCall(receiver.frame, receiver.kind, tuple(keys), node=node)
             return self.dispatch(f"frame.{receiver.kind}", call, node)
+        if isinstance(receiver, Indexed) and not receiver.grouped:
+            receiver = labelled_frame(receiver.frame, receiver.key)  # df.set_index(k)["c"]
         call = PandasCall(receiver, "getitem", (key_value,), node=node)
         return self.dispatch(_getitem_key(receiver, key_value), call, node)
 
