@@ -460,9 +460,10 @@ class PeriodTexts(DateRange):
 
 def _frame_columns_only(module: object, text: str) -> tuple[int, int] | None:
     """Whether each `pd.date_range(...)` written as `text` in the script is a column of a frame
-    written out (`pd.DataFrame({"day": <it>})`), itself or through a name that is read only
-    there (`days = pd.date_range(...)`, then `pd.DataFrame({"day": days})`), in a call given
-    nothing but the data and columns=: the lines of the first such call, or None."""
+    written out (`pd.DataFrame({"day": <it>})`, in a call given nothing but the data and
+    columns=) or the labels of a reindex (`s.reindex(<it>, ...)`), itself or through a name that
+    is read only there (`days = pd.date_range(...)`, then `pd.DataFrame({"day": days})`): the
+    lines of the first such call, or None."""
     if not isinstance(module, ast.Module):
         return None
     try:
@@ -478,6 +479,11 @@ def _frame_columns_only(module: object, text: str) -> tuple[int, int] | None:
             plain = len(node.args) <= 2 and all(k.arg in ("data", "columns") for k in node.keywords)
             if isinstance(data, ast.Dict) and plain:
                 columns.update(id(v) for v in data.values)
+        if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
+                and node.func.attr == "reindex" and len(node.args) == 1:
+            # s.reindex(<it>, fill_value=...): the labels of a Series laid over the range, a
+            # join on a frame of them (rows.reindex)
+            columns.add(id(node.args[0]))
     names: set[str] = set()  # names bound to the range
     lines: tuple[int, int] | None = None
     for node in ast.walk(module):
