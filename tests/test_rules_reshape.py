@@ -595,3 +595,36 @@ def test_row_total_of_a_pivoted_table_changed_since_is_not_assumed_numbers() -> 
                       'wide = wide.astype(str)\n'
                       'result = wide.sum(axis=1)\n')
     assert "pl.sum_horizontal(" not in convert(source).converted_text
+
+
+# -- xs: one label of one level of a groupby's Series ----------------------------------------
+
+@pytest.mark.parametrize("call", [
+    'df.groupby(["shop", "kind"])["n"].sum().xs("p", level="kind")',
+    'df.groupby(["shop", "kind"])["qty"].mean().xs("a", level="shop")',
+    'df.groupby(["shop", "kind"])["qty"].mean().xs("a")',
+    'df.groupby(["shop", "kind"])["n"].sum().xs("q", level=1)',
+    'df.groupby(["shop", "kind", "size"])["n"].sum().xs("p", level="kind")',
+    'df.groupby(["shop", "kind"])["n"].cumsum().groupby([df["shop"], df["kind"]]).max().xs("p", level="kind")',
+    'df.groupby(["shop", "kind"])["n"].sum().rank().xs("p", level="kind")',
+])
+def test_xs_matches_pandas(call: str) -> None:
+    result = differential(FRAME + f"result = {call}.reset_index()\n")
+    assert not [s for s in result.todos if s.key == "series.xs"], result.converted_text
+
+
+def test_xs_then_reductions_match_pandas() -> None:
+    source = FRAME + ('s = df.groupby(["shop", "kind"])["n"].sum().xs("p", level="kind")\n'
+                      'top = s.max()\nwho = s.idxmax()\nresult = s.sort_values().reset_index()\n')
+    differential(source, "top", "who", "result")
+
+
+@pytest.mark.parametrize("call,reason", [
+    ('df.groupby(["shop", "kind"])["n"].sum().xs("p", level="kind", drop_level=False)', "drop_level"),
+    ('df.groupby(["shop", "kind"])["n"].sum().xs(("a", "p"))', "one label"),
+    ('df.groupby("shop")["n"].sum().xs("a")', "two or more keys"),
+    ('df.groupby(["shop", "size"])["n"].sum().xs("3", level="size")', "another type"),
+])
+def test_xs_todo(call: str, reason: str) -> None:
+    todo = next(s for s in convert(FRAME + f"result = {call}\n").todos if s.key == "series.xs")
+    assert reason in todo.message

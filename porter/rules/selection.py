@@ -19,7 +19,7 @@ from porter.translate.context import (
 )
 from porter.translate.handover import series_frame, to_pandas
 from porter.translate.values import (
-    Accessor, Column, Frame, Module, Opaque, PandasValue, Parts, Scalar, Value,
+    Accessor, Column, Frame, Module, Opaque, PandasValue, Parts, Scalar, Value, fresh_token,
 )
 
 
@@ -1424,3 +1424,59 @@ def select_dtypes(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.lower("the columns are picked by the types porter knows: pandas reads a file with a "
               "header and no rows as text in every column", 0.95)
     return select_columns(frame, frame.code.method("select", *names), names)
+
+
+@rule("series.xs")
+def series_xs(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.xs("tenor", level="part") -> the rows whose key "part" is the label, .drop("part"),
+    on a Series labelled by two or more keys (a groupby's).
+
+    Handles: level by name or position; the Series keeps the other keys as its labels, in the
+    groupby's order (each combination of them once).
+    Caveats: a label no row holds gives no rows where pandas raises KeyError (0.95);
+    drop_level=False, a tuple of labels across levels, several levels and a label of another
+    type than the key are TODOs."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "key", "level", "drop_level", positional=1)
+    frame = column.frame
+    keys = list(frame.index)
+    label = call.arg("key", 0, None)
+    if len(keys) < 2 or row_labels_carried(frame):
+        raise ctx.todo("a Series not labelled by two or more keys (a groupby's): select the rows "
+                       "by their key column")
+    if not (isinstance(label, Opaque) and label.is_const and isinstance(label.const, (str, int))
+            and not isinstance(label.const, bool)):
+        raise ctx.todo("one label written in the script (a tuple across levels is not ported)")
+    level = call.const("level", None, None, kinds=(str, int, type(None)))
+    if level is None:
+        level = 0  # the first level, as pandas reads a label without level=
+    if isinstance(level, bool):
+        raise ctx.todo("level as True/False")
+    if isinstance(level, int):
+        if not -len(keys) <= level < len(keys):
+            raise ctx.todo(f"level {level} out of range (pandas raises)")
+        level = keys[level]
+    if level not in keys:
+        raise ctx.todo(f"level {level!r} is not a key (pandas raises)")
+    if call.const("drop_level", None, True, kinds=(bool,)) is not True:
+        raise ctx.todo("drop_level=False: keep the key column")
+    kinds = {str: "str", int: "int"}
+    if kinds.get(type(label.const)) != frame.dtype(level):
+        raise ctx.todo("a label of another type than the key (or a key of unknown type)")
+    if level in column.refs:
+        raise ctx.todo("values computed from the key taken away")
+    ctx.lower("a label no row holds gives an empty Series where pandas raises KeyError", 0.95)
+    column = values_fixed(column)  # a rank or running sum keeps the values of all rows
+    frame = column.frame
+    code = frame.code.method("filter", emit.binop(emit.col(level), "==", emit.lit(label.const))) \
+        .method("drop", level)
+    rows = fresh_token()
+    # the other keys of a groupby's sorted result, once each and in order, where they were so
+    grouped = rows if frame.grouped_rows == frame.rows else None
+    left = derive(frame, code, same_rows=False, rows=rows, grouped_rows=grouped,
+                  index=tuple(k for k in keys if k != level),
+                  columns=tuple(c for c in frame.columns if c != level)
+                  if frame.columns is not None else None,
+                  dtypes=tuple((c, t) for c, t in frame.dtypes if c != level))
+    return replace(column, code=ctx.expr(column, frame), frame=left, sites=())
