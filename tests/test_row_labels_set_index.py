@@ -115,3 +115,19 @@ def test_value_by_a_label_not_held_once_raises(body: str, data: Path) -> None:
 def test_labelled_table_todo(body: str, reason: str, data: Path) -> None:
     result = convert(HEAD + body + "\n", data_dir=str(data))
     assert any(reason in s.message for s in result.todos), [s.message for s in result.todos]
+
+
+@pytest.mark.parametrize("body", [
+    'b = pd.read_csv("boats.csv", index_col="boat")\nresult = b.index.is_unique',
+    'b = pd.read_csv("unique.csv", index_col="boat")\nresult = b.index.is_unique',
+    'b = pd.read_csv("boats.csv")\nb = b.set_index("kind")\nresult = b.index.is_unique',
+    'result = pd.read_csv("boats.csv")["length_ft"].is_unique',  # NaN once: unique
+    'b = pd.read_csv("boats.csv")\nresult = pd.concat([b, b])["mooring"].is_unique',
+    'b = pd.read_csv("boats.csv", index_col="boat")\nresult = len(b)',
+    'b = pd.read_csv("boats.csv")\nb = b.set_index("boat")\nresult = len(b[b["length_ft"] > 30])',
+])
+def test_labels_read_whole_match_pandas(body: str, data: Path) -> None:
+    source = HEAD + body + "\n"
+    result = differential(source, data_dir=str(data))
+    assert not [s for s in result.todos if s.key in ("series.is_unique", "builtin.len")], \
+        result.converted_text

@@ -1480,3 +1480,24 @@ def series_xs(call: PandasCall, ctx: RuleContext) -> Value:
                   if frame.columns is not None else None,
                   dtypes=tuple((c, t) for c, t in frame.dtypes if c != level))
     return replace(column, code=ctx.expr(column, frame), frame=left, sites=())
+
+
+@rule("series.is_unique")
+def series_is_unique(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.is_unique / df.index.is_unique -> pl.col(c).is_unique().all(), collected.
+
+    Handles: missing values are one value (two of them are not unique), as in pandas; NaN is
+    made missing first; an empty Series is unique in both."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    if column.element:
+        raise ctx.todo("is_unique of one value")
+    values = ctx.expr(column, column.frame)
+    if column.dtype not in ("int", "str", "bool", "date", "datetime"):
+        values = values.method("fill_nan", None) if column.dtype == "float" else values
+        if column.dtype not in ("float",):
+            raise ctx.todo("values of a type porter does not know (NaN and missing values are "
+                           "one value in pandas)")
+    code = column.frame.code.method("select", values.method("is_unique").method("all")) \
+        .method("collect").method("item")
+    return Scalar(code, pytype="bool")

@@ -2080,6 +2080,8 @@ class _Walker:
             kept = replace(value.frame, code=emit.atom(name), sites=(), binding=self.statement_key)
             env[name] = replace(value, code=handover.to_pandas(kept).method("set_index", value.key),
                                 frame=kept, sites=())
+            if code.text == name:  # `df = df.set_index("k")` of a frame holding k first already
+                return "", list(value.sites)
         elif isinstance(value, Grouped) and value.frame.code.text.isidentifier() \
                 and not value.prepared and value.selection is None \
                 and self.changed_later(value.frame.code.text):

@@ -733,8 +733,11 @@ class Evaluator:
                 and name != "len":
             return self.generic(node)  # round(parts), list(parts)…: pandas' DataFrame
         if name in _BUILTIN_RULES and positional and is_pandas(positional[0]):
-            call = PandasCall(positional[0], name, positional[1:], keywords, node)
-            return self.dispatch(_BUILTIN_RULES[name].format(kind=_prefix(positional[0])), call, node)
+            first = positional[0]
+            if isinstance(first, Indexed) and not first.grouped:
+                first = labelled_frame(first.frame, first.key)  # len(df.set_index("k"))
+            call = PandasCall(first, name, positional[1:], keywords, node)
+            return self.dispatch(_BUILTIN_RULES[name].format(kind=_prefix(first)), call, node)
         # display: print(df) prints the collected frame
         parts = [self.for_display(v) for v in positional]
         parts += [f"{k}={self.for_display(v)}" for k, v in keywords.items()]
