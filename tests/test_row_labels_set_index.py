@@ -131,3 +131,15 @@ def test_labels_read_whole_match_pandas(body: str, data: Path) -> None:
     result = differential(source, data_dir=str(data))
     assert not [s for s in result.todos if s.key in ("series.is_unique", "builtin.len")], \
         result.converted_text
+
+
+@pytest.mark.parametrize("body", [
+    'b = pd.read_csv("boats.csv", index_col="boat")\nresult = b.groupby("kind")["length_ft"].sum()',
+    'b = pd.read_csv("boats.csv").set_index("boat")\nresult = b.groupby("kind")[["length_ft"]].max().reset_index()',
+    'b = pd.read_csv("boats.csv", index_col="boat")\nresult = b.groupby(["kind", "mooring"])["length_ft"].mean()',
+])
+def test_groupby_of_a_labelled_table_matches_pandas(body: str, data: Path) -> None:
+    # pandas leaves the labels out of what it aggregates: the groups of the columns taken
+    source = HEAD + body + "\n"
+    result = differential(source, data_dir=str(data))
+    assert not result.todos, result.converted_text

@@ -393,6 +393,11 @@ class Evaluator:
             if qualname == "numpy.inf":
                 return self.opaque(node, math.inf)
             return Module(Code(self.source(node)), qualname=qualname, sites=receiver.sites)
+        if isinstance(receiver, Indexed) and receiver.grouped and receiver.selection \
+                and name not in _INDEXED_METHODS[True]:
+            # df.set_index(k).groupby(keys)["c"].sum(): the groups of the frame's columns
+            # (the labels are not among the columns taken)
+            receiver = self.regrouped(receiver, node)
         if isinstance(receiver, Indexed) and not receiver.grouped \
                 and name not in _INDEXED_METHODS[False]:
             # df.set_index(k).<anything but resample / groupby / reset_index>: the table
@@ -994,6 +999,19 @@ class Evaluator:
         return self.dispatch("series.unary", PandasCall(operand, op, node=node), node)
 
     # -- rules ----------------------------------------------------------------------------------
+    def regrouped(self, indexed: Indexed, node: cst.CSTNode) -> Value:
+        """A groupby of a labelled table with columns taken (set_index(k).groupby(g)["c"]) as
+        the same groupby of its frame: pandas leaves the labels out of what it aggregates."""
+        keys = list(indexed.grouped)
+        by: Any = keys[0] if len(keys) == 1 else keys
+        grouped = self.dispatch("frame.groupby", PandasCall(
+            indexed.frame, "groupby", (Opaque(emit.lit(by), const=by),), node=node), node)
+        names: Any = indexed.selection[0] if indexed.single else list(indexed.selection or ())
+        if not isinstance(grouped, Grouped):
+            return grouped
+        return self.dispatch("groupby.getitem", PandasCall(
+            grouped, "getitem", (Opaque(emit.lit(names), const=names),), node=node), node)
+
     def dispatch(self, key: str, call: PandasCall, node: cst.CSTNode) -> Value:
         table, registry = self.services.table, self.services.registry
         entry = table.get(key)
