@@ -628,3 +628,34 @@ def test_xs_then_reductions_match_pandas() -> None:
 def test_xs_todo(call: str, reason: str) -> None:
     todo = next(s for s in convert(FRAME + f"result = {call}\n").todos if s.key == "series.xs")
     assert reason in todo.message
+
+
+# -- pivot_table without columns: a groupby of the value columns -----------------------------
+
+@pytest.mark.parametrize("call", [
+    'df.pivot_table(index="shop", values=["qty", "n"], aggfunc="sum")',
+    'df.pivot_table(index=["shop", "kind"], values=["qty", "n"], aggfunc={"n": "sum", "qty": "sum"}, fill_value=0)',
+    'df.pivot_table(index=["shop", "kind"], values=["qty", "n"], aggfunc={"qty": "mean", "n": "max"})',
+    'df.pivot_table(index="kind", values=["qty", "size"], aggfunc={"qty": "min", "size": "count"}, fill_value=-1)',
+    'df.pivot_table(index="kind", values="qty", aggfunc="max")',
+    'df.pivot_table(index="kind", values=["qty"])',  # mean by default
+    'df[df["qty"].isna()].pivot_table(index="shop", values=["qty", "n"], aggfunc={"qty": "mean", "n": "sum"})',
+    'df[df["qty"].isna()].pivot_table(index="shop", values=["qty"], aggfunc="mean", fill_value=0)',
+])
+def test_pivot_table_without_columns_matches_pandas(call: str) -> None:
+    result = differential(FRAME + f"result = {call}.reset_index()\n")
+    assert not [s for s in result.todos if s.key == "frame.pivot_table"], result.converted_text
+    from support import run
+    assert column_kinds(run(FRAME + f"result = {call}.reset_index()\n")["result"]) == \
+        column_kinds(run(result.converted_text)["result"]), result.converted_text
+
+
+@pytest.mark.parametrize("call,reason", [
+    ('df.pivot_table(index="shop", values=["qty", "n"], aggfunc={"qty": "sum"})', "per value column"),
+    ('df.pivot_table(index="shop", values=["qty"], aggfunc="std")', "per value column"),
+    ('df.pivot_table(index="shop", values=["qty"], margins=True)', "margins"),
+    ('df.pivot_table(index="shop")', "values other than"),
+])
+def test_pivot_table_without_columns_todo(call: str, reason: str) -> None:
+    todo = next(s for s in convert(FRAME + f"result = {call}\n").todos if s.key == "frame.pivot_table")
+    assert reason in todo.message
