@@ -58,3 +58,56 @@ def test_rename_axis_of_index_and_columns_none_matches_pandas() -> None:
                       'result = t.rename_axis(index="dom", columns=None).reset_index()\n')
     result = differential(source)
     assert not [s for s in result.todos if s.key == "frame.rename_axis"], result.converted_text
+
+
+# -- a groupby's Series laid over every combination of its keys -------------------------------
+
+PRODUCT = """\
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({
+    "farm": ["b", "a", "b", None, "é", "a", "b", "a"],
+    "size": ["seed", "ware", "seed", "seed", "chats", None, "ware", "ware"],
+    "n": [1, 2, 3, 4, 5, 6, 7, 8],
+    "kg": [0.5, np.nan, 2.5, -1.0, np.nan, 3.25, 1.0, 2.0],
+})
+SIZES = ["seed", "ware", "chats", "oversize"]
+"""
+
+
+@pytest.mark.parametrize("body", [
+    'full = pd.MultiIndex.from_product([["a", "b", "c"], SIZES], names=["farm", "size"])\n'
+    'result = df.groupby(["farm", "size"])["n"].sum().reindex(full, fill_value=0).reset_index()',
+    'farms = sorted(df["farm"].dropna().unique())\n'
+    'full = pd.MultiIndex.from_product([farms, SIZES], names=["farm", "size"])\n'
+    'result = df.groupby(["farm", "size"])["kg"].max().reindex(full, fill_value=0).reset_index()',
+    'full = pd.MultiIndex.from_product([SIZES, ["b", "a"]], names=["grade", "grower"])\n'
+    'result = df.groupby(["size", "farm"])["n"].count().reindex(full, fill_value=-1).reset_index()',
+    'full = pd.MultiIndex.from_product([["b", "a"], SIZES], names=["farm", "size"])\n'
+    'kg = df.groupby(["farm", "size"])["kg"].sum().reindex(full, fill_value=0.0)\n'
+    'result = kg.unstack("size").reset_index()',
+    'full = pd.MultiIndex.from_product([[], SIZES], names=["farm", "size"])\n'
+    'result = df.groupby(["farm", "size"])["n"].sum().reindex(full, fill_value=0).reset_index()',
+])
+def test_reindex_over_a_product_matches_pandas(body: str) -> None:
+    result = differential(PRODUCT + body + "\n")
+    assert not [s for s in result.todos if s.key in ("series.reindex", "pd.MultiIndex.from_product")], \
+        result.converted_text
+    assert 'how="cross"' in result.converted_text
+
+
+@pytest.mark.parametrize("body,key", [
+    # the MultiIndex read otherwise: pandas' own
+    ('full = pd.MultiIndex.from_product([["a"], SIZES], names=["farm", "size"])\nprint(len(full))\n'
+     'result = df.groupby(["farm", "size"])["n"].sum().reindex(full, fill_value=0)',
+     "pd.MultiIndex.from_product"),
+    ('full = pd.MultiIndex.from_product([["a"], SIZES])\n'
+     'result = df.groupby(["farm", "size"])["n"].sum().reindex(full, fill_value=0)',
+     "pd.MultiIndex.from_product"),
+    ('full = pd.MultiIndex.from_product([["a"], SIZES], names=["farm", "size"])\n'
+     'result = df.groupby(["farm", "size"])["n"].sum().reindex(full)', "series.reindex"),
+])
+def test_reindex_over_a_product_todo(body: str, key: str) -> None:
+    result = convert(PRODUCT + body + "\n")
+    assert key in [s.key for s in result.todos], result.converted_text
+    differential(PRODUCT + body + "\n")  # what stays pandas still computes pandas' values

@@ -14,7 +14,8 @@ from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, column_of, derive, derived_column,
     row_labels_carried, values_fixed, without_index,
 )
-from porter.translate.values import Column, Frame, Opaque, Value, fresh_token
+from porter.translate import handover
+from porter.translate.values import Column, Frame, Opaque, PandasValue, Value, fresh_token
 
 KEEP = {"first": "first", "last": "last", False: "none"}
 _ROW = "__row"  # the row number drop_duplicates(keep="last") sorts the kept rows back by
@@ -873,12 +874,23 @@ def series_reindex(call: PandasCall, ctx: RuleContext) -> Value:
     Caveats: other targets (a list, another index, pd.MultiIndex.from_product), no fill_value
     (pandas' NaN turns integers float), method=, limit=, tolerance= and a Series whose labels
     may repeat (pandas raises) are TODOs."""
-    from porter.rules.construct import DateRange
+    from porter.rules.construct import DateRange, ProductLabels
     from porter.rules.selection import unique_key
     column = call.receiver
     assert isinstance(column, Column)
     ctx.reject_unknown(call, "index", "fill_value", positional=1)
     target = call.args[0] if call.args else call.kwargs.get("index")
+    if isinstance(target, Opaque) and isinstance(target.const, ProductLabels):
+        try:
+            return _reindex_product(call, column, target, ctx)
+        except Unsupported as exc:
+            # kept on pandas, given pandas' MultiIndex of the same labels (the name holds the
+            # Polars frame of them): a TODO all the same
+            ctx.needs_review(exc.reason)
+            labels = emit.call("pd.MultiIndex.from_frame",
+                               target.code.method("collect").method("to_pandas"))
+            passed = {k: v.code for k, v in call.kwargs.items() if k != "index"}
+            return PandasValue(handover.to_pandas(column).method("reindex", labels, **passed))
     if not (isinstance(target, Opaque) and isinstance(target.const, DateRange)
             and type(target.const) is DateRange):
         raise ctx.todo("a target other than a pd.date_range written in the script (a list, "
@@ -918,4 +930,60 @@ def series_reindex(call: PandasCall, ctx: RuleContext) -> Value:
     result = Frame(code, columns=(labels, value), index=(labels,), index_unnamed=True,
                    dtypes=((labels, "datetime"), (value, dtype)), labels_intact=False,
                    rows=rows, grouped_rows=rows)
+    return Column(emit.col(value), frame=result, name=column.name, dtype=dtype)
+
+
+def _reindex_product(call: PandasCall, column: Column, target: Opaque, ctx: RuleContext) -> Value:
+    """s.reindex(pd.MultiIndex.from_product(levels, names=...), fill_value=x) of a groupby's
+    Series on as many keys: a left join of the Series on the cross join of the levels (the
+    Series' keys matched to the levels by position, as pandas matches them), every
+    combination once in the product's order; one the Series has no row for gets fill_value,
+    a missing value it had stays missing. The result is labelled by the levels' names."""
+    product = target.const
+    frame = column.frame
+    keys = list(frame.index)
+    if len(keys) != len(product.names) or frame.grouped_rows != frame.rows \
+            or row_labels_carried(frame):
+        raise ctx.todo("a Series not labelled by as many keys of distinct combinations (a "
+                       "groupby's) as the product has levels")
+    kinds = {"str": "pl.String", "int": "pl.Int64"}
+    if not all(frame.dtype(k) in kinds for k in keys):
+        raise ctx.todo("keys of a type other than text or whole numbers")
+    fill = call.const("fill_value", None, None, kinds=(int, float, type(None)))
+    if fill is None or isinstance(fill, bool):
+        raise ctx.todo("no fill_value (or one that is not a number): pandas makes the new labels "
+                       "NaN and turns integers float")
+    if column.dtype not in ("int", "float"):
+        raise ctx.todo(f"values of type {column.dtype or 'unknown'}")
+    value = column.name if column.name is not None else "values"
+    found = "_porter_found"
+    if value in (*product.names, found):
+        raise ctx.todo(f"a Series named {value!r} like a level")
+    values = ctx.expr(column, frame)
+    if values.text != emit.col(value).text:
+        values = values.method("alias", value)
+    mark = emit.pl("lit", True).method("alias", found)
+    if frame.columns == (*keys, value) and tuple(keys) == product.names \
+            and values.text == emit.col(value).text:
+        right = frame.code.method("with_columns", mark)
+    else:
+        right = frame.code.method("select", *(emit.col(k) if k == n else
+                                              emit.col(k).method("alias", n)
+                                              for k, n in zip(keys, product.names)),
+                                  values, mark)
+    names = list(product.names)
+    # the levels as the keys' types (an empty list has none of its own)
+    labels = target.code.method("cast", emit.atom(
+        "{" + ", ".join(f"{emit.lit(n).text}: {kinds[frame.dtype(k)]}"
+                        for k, n in zip(keys, names)) + "}"))
+    filled = emit.when(emit.col(found), emit.col(value), fill)
+    code = labels.method("join", right, on=names, how="left", maintain_order="left") \
+        .method("select", *names, filled.method("alias", value))
+    dtype = "float" if column.dtype == "float" or isinstance(fill, float) else "int"
+    rows = fresh_token()
+    # every combination once: what unstack lays out (pandas' levels are sorted, as porter
+    # lays them out)
+    result = Frame(code, columns=(*names, value), index=tuple(names),
+                   dtypes=(*((n, frame.dtype(k)) for k, n in zip(keys, names)), (value, dtype)),
+                   labels_intact=False, rows=rows, grouped_rows=rows)
     return Column(emit.col(value), frame=result, name=column.name, dtype=dtype)
