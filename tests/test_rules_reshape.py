@@ -659,3 +659,17 @@ def test_pivot_table_without_columns_matches_pandas(call: str) -> None:
 def test_pivot_table_without_columns_todo(call: str, reason: str) -> None:
     todo = next(s for s in convert(FRAME + f"result = {call}\n").todos if s.key == "frame.pivot_table")
     assert reason in todo.message
+
+
+@pytest.mark.parametrize("body", [
+    # a groupby's table: its keys are pandas' index, not columns summed
+    't = df.groupby("shop")[["n", "qty"]].sum()\nt["total"] = t.sum(axis=1)\nresult = t.reset_index()',
+    't = df.groupby(["shop", "kind"])[["n", "size"]].max()\nt["top"] = t.max(axis=1)\nresult = t.reset_index()',
+    # a pivot whose columns the script chose: their row total
+    't = df.groupby(["shop", "kind"])["n"].sum().unstack(fill_value=0)[["p", "q"]]\n'
+    't["total"] = t.sum(axis=1)\nresult = t.reset_index()',
+])
+def test_row_and_column_totals_leave_the_index_out(body: str) -> None:
+    result = differential(FRAME + body + "\n")
+    assert not [s for s in result.todos if s.key in ("frame.sum", "frame.max", "frame.setitem")], \
+        result.converted_text

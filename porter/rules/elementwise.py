@@ -1727,9 +1727,10 @@ def _row_columns(call: PandasCall, frame: Frame) -> list[Column]:
     columns with numeric_only=True (which needs every column's type)."""
     if frame.columns is None or not frame.columns:
         raise Unsupported("the frame's columns are not known")
-    if frame.index:
-        raise Unsupported("a frame with an index of its own")
-    names = list(frame.columns)
+    # the columns that hold pandas' index (a groupby's keys, a pivot's) are not columns there
+    names = [c for c in frame.columns if c not in frame.index]
+    if not names:
+        raise Unsupported("a frame without columns beside its index")
     if call.const("numeric_only", None, False, kinds=(bool,)):
         if any(frame.dtype(c) is None for c in names):
             raise Unsupported("numeric_only=True where porter does not know every column's type")
