@@ -887,8 +887,8 @@ def series_reindex(call: PandasCall, ctx: RuleContext) -> Value:
             # kept on pandas, given pandas' MultiIndex of the same labels (the name holds the
             # Polars frame of them): a TODO all the same
             ctx.needs_review(exc.reason)
-            labels = emit.call("pd.MultiIndex.from_frame",
-                               target.code.method("collect").method("to_pandas"))
+            labels = target.code.method("collect").method("to_pandas").method(
+                "set_index", list(target.const.names)).attr("index")
             passed = {k: v.code for k, v in call.kwargs.items() if k != "index"}
             return PandasValue(handover.to_pandas(column).method("reindex", labels, **passed))
     if not (isinstance(target, Opaque) and isinstance(target.const, DateRange)
