@@ -2074,7 +2074,8 @@ class _Walker:
                 value = replace(value, frame=replace(frame, columns=columns))
             else:
                 code = frame.code
-            if self.emit_code and self.read_changed_later() and not _is_collected(code):
+            if self.emit_code and (self.computed_once() or self.read_changed_later()) \
+                    and not _is_collected(code):
                 code = code.method("collect").method("lazy")  # see read_changed_later
             self.note_parents(code, env)
             kept = replace(value.frame, code=emit.atom(name), sites=(), binding=self.statement_key)
@@ -2765,8 +2766,9 @@ def _after_loop(env: dict[str, Value], handed: dict[str, Frame]) -> dict[str, Va
 
 
 def _plan_of(value: Value | None) -> Value | None:
-    """The frame whose plan a named value runs: a pending groupby runs its frame's."""
-    return value.frame if isinstance(value, Grouped) else value
+    """The frame whose plan a named value runs: a pending groupby runs its frame's, a table
+    labelled by a column (set_index, read_csv(index_col=)) its frame's."""
+    return value.frame if isinstance(value, (Grouped, Indexed)) else value
 
 
 def _executions(tree: ast.AST) -> list[set[str]]:
