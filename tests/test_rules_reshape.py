@@ -565,3 +565,111 @@ def test_melt_of_integer_labels_beside_text_labels_is_a_todo(tmp_path):
     ''', data_dir=str(tmp_path))
     assert any(s.key == "frame.melt" and s.status == "todo" for s in result.sites), \
         result.converted_text
+
+
+# -- the row total of a pivoted table --------------------------------------------------------
+
+@pytest.mark.parametrize("made", [
+    'df.groupby(["shop", "kind"])["n"].sum().unstack()',  # a missing combination: float cells
+    'df.groupby(["shop", "kind"])["n"].sum().unstack(fill_value=0)',
+    'df.groupby(["shop", "kind"])["qty"].mean().unstack()',  # NaN means and missing cells
+    'df.groupby(["shop", "kind"])["qty"].sum().unstack(fill_value=0)',
+    'df.groupby(["shop", "kind", "size"])["n"].sum().unstack()',
+    'df[df["shop"] == "zzz"].groupby(["shop", "kind"])["n"].sum().unstack()',  # no rows, no columns
+    'pd.crosstab(df["shop"], df["kind"])',
+    'pd.crosstab(df["shop"], df["kind"], margins=True)',
+    'pd.crosstab(df["shop"], df["kind"], normalize="index")',
+])
+def test_row_total_of_a_pivoted_table_matches_pandas(made: str) -> None:
+    # wide["total"] = wide.sum(axis=1): the columns are the data's, every one a number
+    source = FRAME + f'wide = {made}\nwide["total"] = wide.sum(axis=1)\nresult = wide.reset_index()\n'
+    result = differential(source)
+    assert not [s for s in result.todos if s.key in ("frame.sum", "frame.setitem")], \
+        result.converted_text
+    assert "pl.sum_horizontal(" in result.converted_text
+
+
+def test_row_total_of_a_pivoted_table_changed_since_is_not_assumed_numbers() -> None:
+    # after astype(str) the cells are text: pandas would join them, porter does not sum
+    source = FRAME + ('wide = df.groupby(["shop", "kind"])["n"].sum().unstack(fill_value=0)\n'
+                      'wide = wide.astype(str)\n'
+                      'result = wide.sum(axis=1)\n')
+    assert "pl.sum_horizontal(" not in convert(source).converted_text
+
+
+# -- xs: one label of one level of a groupby's Series ----------------------------------------
+
+@pytest.mark.parametrize("call", [
+    'df.groupby(["shop", "kind"])["n"].sum().xs("p", level="kind")',
+    'df.groupby(["shop", "kind"])["qty"].mean().xs("a", level="shop")',
+    'df.groupby(["shop", "kind"])["qty"].mean().xs("a")',
+    'df.groupby(["shop", "kind"])["n"].sum().xs("q", level=1)',
+    'df.groupby(["shop", "kind", "size"])["n"].sum().xs("p", level="kind")',
+    'df.groupby(["shop", "kind"])["n"].cumsum().groupby([df["shop"], df["kind"]]).max().xs("p", level="kind")',
+    'df.groupby(["shop", "kind"])["n"].sum().rank().xs("p", level="kind")',
+])
+def test_xs_matches_pandas(call: str) -> None:
+    result = differential(FRAME + f"result = {call}.reset_index()\n")
+    assert not [s for s in result.todos if s.key == "series.xs"], result.converted_text
+
+
+def test_xs_then_reductions_match_pandas() -> None:
+    source = FRAME + ('s = df.groupby(["shop", "kind"])["n"].sum().xs("p", level="kind")\n'
+                      'top = s.max()\nwho = s.idxmax()\nresult = s.sort_values().reset_index()\n')
+    differential(source, "top", "who", "result")
+
+
+@pytest.mark.parametrize("call,reason", [
+    ('df.groupby(["shop", "kind"])["n"].sum().xs("p", level="kind", drop_level=False)', "drop_level"),
+    ('df.groupby(["shop", "kind"])["n"].sum().xs(("a", "p"))', "one label"),
+    ('df.groupby("shop")["n"].sum().xs("a")', "two or more keys"),
+    ('df.groupby(["shop", "size"])["n"].sum().xs("3", level="size")', "another type"),
+])
+def test_xs_todo(call: str, reason: str) -> None:
+    todo = next(s for s in convert(FRAME + f"result = {call}\n").todos if s.key == "series.xs")
+    assert reason in todo.message
+
+
+# -- pivot_table without columns: a groupby of the value columns -----------------------------
+
+@pytest.mark.parametrize("call", [
+    'df.pivot_table(index="shop", values=["qty", "n"], aggfunc="sum")',
+    'df.pivot_table(index=["shop", "kind"], values=["qty", "n"], aggfunc={"n": "sum", "qty": "sum"}, fill_value=0)',
+    'df.pivot_table(index=["shop", "kind"], values=["qty", "n"], aggfunc={"qty": "mean", "n": "max"})',
+    'df.pivot_table(index="kind", values=["qty", "size"], aggfunc={"qty": "min", "size": "count"}, fill_value=-1)',
+    'df.pivot_table(index="kind", values="qty", aggfunc="max")',
+    'df.pivot_table(index="kind", values=["qty"])',  # mean by default
+    'df[df["qty"].isna()].pivot_table(index="shop", values=["qty", "n"], aggfunc={"qty": "mean", "n": "sum"})',
+    'df[df["qty"].isna()].pivot_table(index="shop", values=["qty"], aggfunc="mean", fill_value=0)',
+])
+def test_pivot_table_without_columns_matches_pandas(call: str) -> None:
+    result = differential(FRAME + f"result = {call}.reset_index()\n")
+    assert not [s for s in result.todos if s.key == "frame.pivot_table"], result.converted_text
+    from support import run
+    assert column_kinds(run(FRAME + f"result = {call}.reset_index()\n")["result"]) == \
+        column_kinds(run(result.converted_text)["result"]), result.converted_text
+
+
+@pytest.mark.parametrize("call,reason", [
+    ('df.pivot_table(index="shop", values=["qty", "n"], aggfunc={"qty": "sum"})', "per value column"),
+    ('df.pivot_table(index="shop", values=["qty"], aggfunc="std")', "per value column"),
+    ('df.pivot_table(index="shop", values=["qty"], margins=True)', "margins"),
+    ('df.pivot_table(index="shop")', "values other than"),
+])
+def test_pivot_table_without_columns_todo(call: str, reason: str) -> None:
+    todo = next(s for s in convert(FRAME + f"result = {call}\n").todos if s.key == "frame.pivot_table")
+    assert reason in todo.message
+
+
+@pytest.mark.parametrize("body", [
+    # a groupby's table: its keys are pandas' index, not columns summed
+    't = df.groupby("shop")[["n", "qty"]].sum()\nt["total"] = t.sum(axis=1)\nresult = t.reset_index()',
+    't = df.groupby(["shop", "kind"])[["n", "size"]].max()\nt["top"] = t.max(axis=1)\nresult = t.reset_index()',
+    # a pivot whose columns the script chose: their row total
+    't = df.groupby(["shop", "kind"])["n"].sum().unstack(fill_value=0)[["p", "q"]]\n'
+    't["total"] = t.sum(axis=1)\nresult = t.reset_index()',
+])
+def test_row_and_column_totals_leave_the_index_out(body: str) -> None:
+    result = differential(FRAME + body + "\n")
+    assert not [s for s in result.todos if s.key in ("frame.sum", "frame.max", "frame.setitem")], \
+        result.converted_text

@@ -479,9 +479,10 @@ class PeriodTexts(DateRange):
 
 def _frame_columns_only(module: object, text: str) -> tuple[int, int] | None:
     """Whether each `pd.date_range(...)` written as `text` in the script is a column of a frame
-    written out (`pd.DataFrame({"day": <it>})`), itself or through a name that is read only
-    there (`days = pd.date_range(...)`, then `pd.DataFrame({"day": days})`), in a call given
-    nothing but the data and columns=: the lines of the first such call, or None."""
+    written out (`pd.DataFrame({"day": <it>})`, in a call given nothing but the data and
+    columns=) or the labels of a reindex (`s.reindex(<it>, ...)`), itself or through a name that
+    is read only there (`days = pd.date_range(...)`, then `pd.DataFrame({"day": days})`): the
+    lines of the first such call, or None."""
     if not isinstance(module, ast.Module):
         return None
     try:
@@ -497,6 +498,11 @@ def _frame_columns_only(module: object, text: str) -> tuple[int, int] | None:
             plain = len(node.args) <= 2 and all(k.arg in ("data", "columns") for k in node.keywords)
             if isinstance(data, ast.Dict) and plain:
                 columns.update(id(v) for v in data.values)
+        if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
+                and node.func.attr == "reindex" and len(node.args) == 1:
+            # s.reindex(<it>, fill_value=...): the labels of a Series laid over the range, a
+            # join on a frame of them (rows.reindex)
+            columns.add(id(node.args[0]))
     names: set[str] = set()  # names bound to the range
     lines: tuple[int, int] | None = None
     for node in ast.walk(module):
@@ -602,3 +608,93 @@ def date_range(call: PandasCall, ctx: RuleContext) -> Value:
     if made.dtype != pl.Datetime("us") or made.to_list() != list(stamps.to_pydatetime()):
         raise ctx.todo("Polars' range differs from pandas' here")  # checked, never assumed
     return Opaque(code, const=DateRange(code, len(stamps), lines))
+
+
+@dataclass(frozen=True)
+class ProductLabels:
+    """The labels of `pd.MultiIndex.from_product([a, b], names=[...])` as a Polars cross join
+    of a frame per level (`code`), every combination once, the first level's values outermost
+    as pandas makes them; `names` are the levels' names. It stands for pandas' MultiIndex only
+    where the script reads it as the target of a reindex (rows.series_reindex); it has no
+    literal text."""
+
+    code: Code
+    names: tuple[str, ...]
+
+    def __repr__(self) -> str:
+        raise TypeError("a pd.MultiIndex has no literal form")
+
+
+def _only_reindexed(module: object, name: str | None) -> bool:
+    """Whether the MultiIndex bound to `name` (once) is read only as the target of a reindex
+    (`s.reindex(<it>, ...)`)."""
+    if not isinstance(module, ast.Module) or name is None:
+        return False
+    binds = 0
+    for each in ast.walk(module):
+        if isinstance(each, ast.Assign) and any(isinstance(t, ast.Name) and t.id == name
+                                                for t in each.targets):
+            binds += 1
+    targets = set()
+    for each in ast.walk(module):
+        if isinstance(each, ast.Call) and isinstance(each.func, ast.Attribute) \
+                and each.func.attr == "reindex" and len(each.args) == 1:
+            targets.add(id(each.args[0]))
+    for each in ast.walk(module):
+        if isinstance(each, ast.Name) and each.id == name and isinstance(each.ctx, ast.Load) \
+                and id(each) not in targets:
+            return False
+    return binds == 1
+
+
+@rule("pd.MultiIndex.from_product")
+def multiindex_from_product(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.MultiIndex.from_product([a, b], names=["x", "y"]) -> pl.LazyFrame({"x": a}).join(
+    pl.LazyFrame({"y": b}), how="cross"), as the target of a reindex.
+
+    Handles: lists written in the script or held in names (of text or whole numbers), each
+    level named; every combination once, the first level outermost, as pandas makes them.
+    Caveats: any other use of the MultiIndex (printed, iterated, set as an index), levels
+    without names and a level holding a missing value are TODOs."""
+    ctx.reject_unknown(call, "iterables", "sortorder", "names", positional=1)
+    if call.has("sortorder"):
+        raise ctx.todo("sortorder=")
+    names = call.const("names", None, None, kinds=(list, tuple))
+    levels = call.first_node("iterables")
+    if not (isinstance(names, (list, tuple)) and names and all(isinstance(n, str) for n in names)
+            and len(set(names)) == len(names)):
+        raise ctx.todo("levels named by a list of distinct texts (names=[...])")
+    if not (isinstance(levels, (cst.List, cst.Tuple)) and len(levels.elements) == len(names)):
+        raise ctx.todo("the levels written as a list, one per name")
+    bound = _bound_name(call, ctx)
+    if not _only_reindexed(ctx.python_module, bound):
+        raise ctx.todo("porter ports a MultiIndex made from a product only as the labels of a "
+                       "reindex (s.reindex(it, fill_value=...)); here pandas' MultiIndex is used "
+                       "otherwise")
+    module = cst.Module([])
+    frames = [emit.pl("LazyFrame", emit.atom("{" + emit.lit(n).text + ": "
+                                             + module.code_for_node(e.value) + "}"))
+              for n, e in zip(names, levels.elements)]
+    code = frames[0]
+    for other in frames[1:]:
+        code = code.method("join", other, how="cross", maintain_order="left_right")
+    ctx.lower("a level holding a missing value (nan in a list) stops the script: Polars "
+              "cannot make a column of text and a float", 0.95)
+    return Opaque(code, const=ProductLabels(code, tuple(names)))
+
+
+def _bound_name(call: PandasCall, ctx: RuleContext) -> str | None:
+    """The name the statement holding `call` binds it to (`full = pd.MultiIndex...`)."""
+    module = ctx.python_module
+    if not isinstance(module, ast.Module) or call.node is None:
+        return None
+    text = cst.Module([]).code_for_node(call.node)
+    try:
+        wanted = ast.unparse(ast.parse(text.strip(), mode="eval").body)
+    except SyntaxError:
+        return None
+    for each in ast.walk(module):
+        if isinstance(each, ast.Assign) and len(each.targets) == 1 \
+                and isinstance(each.targets[0], ast.Name) and ast.unparse(each.value) == wanted:
+            return each.targets[0].id
+    return None

@@ -28,8 +28,8 @@ from porter.rules.ops import abs_, compare, int64_branches, int64_lit, may_hold_
 from porter.rules.strings import LIST_STR
 from porter.rules.totals import column_totals, pandas_median, pandas_reduce
 from porter.translate.context import (
-    MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_of, derived_column, value_dtype,
-    with_column_updates,
+    MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_of, derived_column, number_cells,
+    value_dtype, with_column_updates,
 )
 from porter.translate.values import Column, Frame, Items, Opaque, Scalar, Value
 
@@ -1594,7 +1594,8 @@ def frame_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
     present; a sum of True/False columns counts them (Int64, as pandas' int64); count(axis=1)
     counts the present values of columns of any type (Int64).
     numeric_only=True reads the number and True/False columns, when every column's type is
-    known.
+    known. sum(axis=1) of a pivoted table whose columns porter does not know (unstack,
+    crosstab of counts), before any other step: every column but the keys, NaN skipped.
     Caveats: per-column totals (axis=0: pandas gives a Series indexed by column name),
     skipna=False, text or date columns (and True/False ones but for sum and count) and
     numeric_only=True with a column of unknown type are TODOs. Without the column types,
@@ -1615,6 +1616,9 @@ def frame_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
     if axis not in (1, "columns"):
         raise Unsupported(f"a {call.name} of the whole frame (axis=None)")
     min_count = call.const("min_count", None, 0, kinds=(int,)) if call.name == "sum" else 0
+    pivoted, cells = number_cells(frame)
+    if pivoted and frame.index and call.name == "sum" and min_count == 0:
+        return _pivot_row_sum(frame, cells)
     columns = _row_columns(call, frame)
     kinds = {c.dtype for c in columns}
     allowed = {None, "int", "float", "bool"} if call.name == "sum" else {None, "int", "float"}
@@ -1639,6 +1643,20 @@ def frame_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
         code = emit.when(enough, code)
     base = Column(emit.pl("lit", None), frame=frame, name=None)
     return derived_column(base, code, dtype=dtype, name=None, others=columns)
+
+
+def _pivot_row_sum(frame: Frame, cells: str | None) -> Column:
+    """wide.sum(axis=1) of a pivoted table whose columns porter does not know (unstack,
+    crosstab): every column but the index keys holds numbers, so the row sum is a
+    sum_horizontal over them; missing cells are skipped (a row of none sums to 0, as pandas).
+    NaN is skipped as missing (pandas' skipna). The 0 added keeps a table without columns (no
+    rows were pivoted) summable, as pandas'."""
+    cells_code = emit.pl("exclude", *frame.index)
+    if cells != "int":
+        cells_code = cells_code.method("fill_nan", None)
+    code = emit.pl("sum_horizontal", cells_code, emit.pl("lit", 0))
+    base = Column(emit.pl("lit", None), frame=frame, name=None)
+    return derived_column(base, code, dtype=cells, name=None)
 
 
 def _row_count(call: PandasCall, frame: Frame, ctx: RuleContext) -> Value:
@@ -1709,9 +1727,10 @@ def _row_columns(call: PandasCall, frame: Frame) -> list[Column]:
     columns with numeric_only=True (which needs every column's type)."""
     if frame.columns is None or not frame.columns:
         raise Unsupported("the frame's columns are not known")
-    if frame.index:
-        raise Unsupported("a frame with an index of its own")
-    names = list(frame.columns)
+    # the columns that hold pandas' index (a groupby's keys, a pivot's) are not columns there
+    names = [c for c in frame.columns if c not in frame.index]
+    if not names:
+        raise Unsupported("a frame without columns beside its index")
     if call.const("numeric_only", None, False, kinds=(bool,)):
         if any(frame.dtype(c) is None for c in names):
             raise Unsupported("numeric_only=True where porter does not know every column's type")

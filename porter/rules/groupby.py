@@ -1972,6 +1972,8 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     values = call.const("values", 0, None, kinds=(str, list, tuple))
     if isinstance(columns, (list, tuple)) and len(columns) == 1:
         columns = columns[0]
+    if columns is None and not call.has("columns", 2):
+        return _pivot_without_columns(call, frame, index, values, ctx)
     if isinstance(values, (list, tuple)) and len(values) == 1:
         raise Unsupported("values given as a list: pandas keeps two levels of column labels")
     if not isinstance(columns, str) or not isinstance(values, str):
@@ -2020,6 +2022,71 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     int_labels = tuple(keys) if frame.dtype(columns) == "int" else None
     return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False,
                  int_labels_except=int_labels, columns_name=columns)
+
+
+_PIVOT_ROW_FUNCTIONS = ("sum", "mean", "median", "min", "max", "count")
+
+
+def _pivot_without_columns(call: PandasCall, frame: Frame, index: Any, values: Any,
+                           ctx: RuleContext) -> Value:
+    """df.pivot_table(index=keys, values=cols, aggfunc=how or {col: how}) without columns=:
+    pandas' groupby(keys)[cols].agg(...) with the columns in sorted order (sort=True), the
+    rows whose every value is missing dropped (dropna=True) and fill_value in the missing
+    cells, as pandas' pivot_table does after the groupby. Ported as that groupby, through
+    porter's own rules for it."""
+    keys = [index] if isinstance(index, str) else list(index or [])
+    names = [values] if isinstance(values, str) else list(values or [])
+    if not keys or not all(isinstance(k, str) for k in keys):
+        raise Unsupported("a pivot without index keys")
+    if not names or not all(isinstance(v, str) for v in names) or set(names) & set(keys) \
+            or len(set(names)) != len(names):
+        raise Unsupported("values other than column names apart from the keys (pandas "
+                          "then pivots every other column)")
+    if not call.const("dropna", None, True) or not call.const("sort", None, True) \
+            or call.const("margins", None, False):
+        raise Unsupported("margins, dropna=False or sort=False")
+    if call.const("observed", None, True) is not True and not all(
+            frame.dtype(k) in ("str", "int", "float", "bool", "date", "datetime") for k in keys):
+        raise Unsupported("observed=False keeps the unused categories of a category key")
+    aggfunc = call.const("aggfunc", 3, "mean", kinds=(str, dict))
+    hows = aggfunc if isinstance(aggfunc, dict) else {v: aggfunc for v in names}
+    if set(hows) != set(names) or not all(isinstance(h, str) and h in _PIVOT_ROW_FUNCTIONS
+                                          for h in hows.values()):
+        raise Unsupported(f"aggfunc other than one of {', '.join(_PIVOT_ROW_FUNCTIONS)} per "
+                          "value column (a dict naming each of them)")
+    fill = call.const("fill_value", 4, None)
+    if fill is not None and (isinstance(fill, bool) or not isinstance(fill, (int, float))):
+        raise Unsupported("a fill_value that is not a number")
+    absent = [c for c in (*keys, *names) if frame.columns is not None and c not in frame.columns]
+    if absent:
+        raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
+    ordered = sorted(names)  # pandas sorts the columns of the table (sort=True)
+    by = keys[0] if isinstance(index, str) else keys
+    frame_name = "_porter_pivoted"
+    expr = cst.parse_expression(f"{frame_name}.groupby({by!r})[{ordered!r}].agg("
+                                f"{ {v: hows[v] for v in ordered}!r})")
+    table = ctx.evaluate(expr, {frame_name: frame})
+    if not isinstance(table, Frame) or tuple(table.index) != tuple(keys):
+        raise Unsupported("the groupby porter would port it as is kept on pandas")
+    code = table.code
+    # a sum or count is never missing (0 for a group without values); the others may be
+    missing = [v for v in ordered if hows[v] in ("mean", "median", "min", "max")]
+    if missing:
+        # a group whose every value is missing: pandas drops its row (dropna=True)
+        code = code.method("filter", emit.pl("any_horizontal", emit.col(ordered).method(
+            "is_not_null")))
+    if fill is not None and missing:
+        code = code.method("with_columns", emit.col(missing).method("fill_null", fill))
+    columns = table.columns
+    if missing:
+        # and a column whose every value is missing (every row, or no row left): pandas drops
+        # it (dropna=True), which the data decides
+        code = code.method("collect").method("pipe", emit.atom(
+            f"lambda t: t.drop([c for c in {missing!r} if t[c].is_null().all()])")).method("lazy")
+        columns = None
+    else:
+        ctx.lower("a table without rows keeps its columns, which pandas drops (dropna=True)", 0.95)
+    return replace(table, code=code, rows=fresh_token(), columns=columns)
 
 
 @rule("groupby.ngroups")

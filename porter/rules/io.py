@@ -3,6 +3,7 @@
 
 from __future__ import annotations
 
+from dataclasses import replace
 import ast
 import re
 from typing import Any
@@ -28,7 +29,7 @@ from porter.rules.ops import MASKED_DTYPES
 from porter.translate import handover
 from porter.translate.context import (PandasCall, RuleContext, Unsupported, derive,
                                      nullable_columns, select_columns)
-from porter.translate.values import Frame, Module, Opaque, PandasValue, Scalar, Value
+from porter.translate.values import Frame, Indexed, Module, Opaque, PandasValue, Scalar, Value
 
 # dtype= for every column that reads each as text: str and "str" (pandas 3.1's str dtype),
 # "string" (StringDtype, pd.NA for missing) and object
@@ -81,6 +82,34 @@ def _names_a_loop_variable(call: PandasCall, ctx: RuleContext) -> bool:
 
 @rule("pd.read_csv")
 def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
+    """pd.read_csv -> pl.scan_csv; index_col="k" -> the table labelled by column k (as
+    df.set_index("k"): the column kept first, held as the index).
+
+    index_col: one column by name, or by position where porter knows the columns (--data);
+    several columns and index_col with usecols are TODOs. See _read_csv for the rest."""
+    index_col = call.const("index_col", None, None, kinds=(str, int, type(None)))
+    if index_col is None:
+        return _read_csv(call, ctx)
+    if isinstance(index_col, bool):
+        raise ctx.todo("index_col=False / True: read without it")
+    if call.has("usecols", 1):
+        raise ctx.todo("index_col with usecols: set_index after reading")
+    frame = _read_csv(replace(call, kwargs={k: v for k, v in call.kwargs.items() if k != "index_col"}),
+                      ctx)
+    if not isinstance(frame, Frame):
+        raise ctx.todo("index_col on a read porter keeps on pandas")
+    if isinstance(index_col, int):
+        if frame.columns is None or not -len(frame.columns) <= index_col < len(frame.columns):
+            raise ctx.todo("index_col by position where porter does not know the columns (run "
+                           "with --data)")
+        index_col = frame.columns[index_col]
+    elif frame.columns is not None and index_col not in frame.columns:
+        raise ctx.todo(f"index_col {index_col!r} is not a column of the file (pandas raises)")
+    return Indexed(handover.to_pandas(frame).method("set_index", index_col), frame=frame, key=index_col,
+                   sites=frame.sites)
+
+
+def _read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     """pd.read_csv -> pl.scan_csv.
 
     Handles: pandas' missing-value tokens (null_values), type inference over the whole file
@@ -93,7 +122,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     "0", "1", ... as pandas' integer labels), thousands=, skipinitialspace=True, a list of
     skiprows, true_values / false_values and a usecols function (read as text, then cast to
     the types pandas infers, read from the sample).
-    Caveats: index_col, converters, encodings
+    Caveats: converters, encodings
     other than UTF-8, latin-1 and cp1252 (read eagerly by pl.read_csv(encoding=...).lazy()),
     on_bad_lines="skip"/"warn" (pandas leaves out a row
     with more fields than the header) and sep=None (pandas guesses the separator) are TODOs; na_values per column needs --data (or a

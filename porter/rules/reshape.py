@@ -205,9 +205,12 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
     # pandas code given the table finds the columns by the key's values (ct[2024])
     int_labels = (*row_names, *([margins_name] if margins else [])) \
         if len(cols) == 1 and cols[0].dtype == "int" else None
-    return Frame(code.method("lazy"), columns=None, index=tuple(row_names), dtypes=dtypes,
+    code = code.method("lazy")
+    # counts (whole numbers), or their shares (floats), in every column but the keys
+    cells = None if has_values else (code.text, "float" if normalize is not None else "int")
+    return Frame(code, columns=None, index=tuple(row_names), dtypes=dtypes,
                  labels_intact=False, int_labels_except=int_labels,
-                 columns_name=col_names[0] if len(col_names) == 1 else None)
+                 columns_name=col_names[0] if len(col_names) == 1 else None, number_cells=cells)
 
 
 def _margins(code: Code, key: str, name: str, normalize: str | None) -> Code:
@@ -309,8 +312,14 @@ def unstack(call: PandasCall, ctx: RuleContext) -> Value:
     dtypes = tuple((k, frame.dtype(k)) for k in rest if frame.dtype(k) is not None)
     # pandas code given the table finds the columns by the key's values (t[2024])
     int_labels = tuple(rest) if frame.dtype(on) == "int" else None
-    return Frame(code.method("lazy"), columns=None, index=tuple(rest), dtypes=dtypes,
-                 labels_intact=False, int_labels_except=int_labels, columns_name=on)
+    code = code.method("lazy")
+    # the cells are the Series' numbers: integers stay so where fill_value is one (else
+    # pandas_unstacked makes them float when a combination is missing, which depends on the data)
+    kind = "float" if column.dtype == "float" or isinstance(fill, float) else (
+        "int" if fill is not None else None)
+    return Frame(code, columns=None, index=tuple(rest), dtypes=dtypes,
+                 labels_intact=False, int_labels_except=int_labels, columns_name=on,
+                 number_cells=(code.text, kind))
 
 
 # -- melt ---------------------------------------------------------------------------------------

@@ -12,9 +12,10 @@ from porter.rules.elementwise import keys_of_column_type
 from porter.rules import rule
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, column_of, derive, derived_column,
-    values_fixed, without_index,
+    row_labels_carried, values_fixed, without_index,
 )
-from porter.translate.values import Column, Frame, Opaque, Value, fresh_token
+from porter.translate import handover
+from porter.translate.values import Column, Frame, Opaque, PandasValue, Value, fresh_token
 
 KEEP = {"first": "first", "last": "last", False: "none"}
 _ROW = "__row"  # the row number drop_duplicates(keep="last") sorts the kept rows back by
@@ -322,12 +323,14 @@ def rename_axis(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(frame, Frame)
     ctx.reject_unknown(call, "mapper", "index", "columns", "axis", positional=1)
     if call.has("columns"):
-        if isinstance(receiver, Column) or call.has("mapper") or call.has("index") \
+        if isinstance(receiver, Column) or call.has("mapper") \
                 or call.const("columns", None, 0) is not None:
             raise ctx.todo("naming the columns: Polars columns have no name")
         # df.rename_axis(columns=None): nothing to do in Polars; melt calls its variable
         # column "variable" again
-        return replace(receiver, columns_name=None)
+        receiver = frame = replace(receiver, columns_name=None)
+        if not call.has("index"):
+            return receiver
     if call.const("axis", None, 0) not in (0, "index", "rows"):
         raise ctx.todo("naming the columns: Polars columns have no name")
     names = call.const("index", None) if call.has("index") else call.const("mapper", 0, None)
@@ -346,7 +349,7 @@ def rename_axis(call: PandasCall, ctx: RuleContext) -> Value:
     if set(mapping.values()) & set(others) or len(set(names)) != len(names):
         raise ctx.todo("an index key named like a column: pandas keeps both, Polars cannot")
     code = frame.code.method("rename", mapping)
-    renamed = derive(frame, code, same_rows=True, index=tuple(names),
+    renamed = derive(frame, code, same_rows=True, index=tuple(names), index_unnamed=False,
                      columns=tuple(mapping.get(c, c) for c in frame.columns)
                      if frame.columns is not None else None,
                      dtypes=tuple((mapping.get(c, c), t) for c, t in frame.dtypes))
@@ -828,6 +831,18 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
         if not ascending:
             kwargs["descending"] = True
         code = frame.code.method("sort", key, **kwargs)
+    elif len(frame.index) == 1 and frame.dtype(frame.index[0]) == "str" \
+            and not row_labels_carried(frame):
+        # text labels that may repeat (set_index, read_csv(index_col=)): pandas' str dtype
+        # sorts them stably (pyarrow's sort), rows of one label in their order, as
+        # maintain_order=True does, both ways
+        ctx.lower("rows of one label keep their order, as pandas' str dtype backed by pyarrow "
+                  "sorts them; pandas without pyarrow sorts with numpy's quicksort, which puts "
+                  "them in no set order", 0.95)
+        kwargs = {"nulls_last": True, "maintain_order": True}
+        if not ascending:
+            kwargs["descending"] = True
+        code = frame.code.method("sort", frame.index[0], **kwargs)
     else:
         raise ctx.todo("row labels that are original row numbers after a filter or sort, or "
                        "keys that may repeat: keep them in a column (with_row_index) and sort "
@@ -844,3 +859,135 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(receiver, Column):
         return replace(receiver, frame=sorted_frame, sites=())
     return sorted_frame
+
+
+# -- reindex ------------------------------------------------------------------------------------
+
+@rule("series.reindex")
+def series_reindex(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.reindex(days, fill_value=0) -> pl.LazyFrame({"index": days}).join(s, how="left").
+
+    On a Series labelled by one date key (a groupby's), days a pd.date_range written in the
+    script: one row per timestamp of the range, in its order; a timestamp the Series has no
+    row for gets fill_value.
+
+    Handles: the labels of the Series the range does not hold are left out; a missing value
+    the Series had stays missing (fill_value fills the new labels only, as pandas); the result
+    is labelled by the range, whose name is None (pandas' index takes the target's name:
+    reset_index() calls it "index", rename_axis names it).
+    Caveats: other targets (a list, another index, pd.MultiIndex.from_product), no fill_value
+    (pandas' NaN turns integers float), method=, limit=, tolerance= and a Series whose labels
+    may repeat (pandas raises) are TODOs."""
+    from porter.rules.construct import DateRange, ProductLabels
+    from porter.rules.selection import unique_key
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "index", "fill_value", positional=1)
+    target = call.args[0] if call.args else call.kwargs.get("index")
+    if isinstance(target, Opaque) and isinstance(target.const, ProductLabels):
+        try:
+            return _reindex_product(call, column, target, ctx)
+        except Unsupported as exc:
+            # kept on pandas, given pandas' MultiIndex of the same labels (the name holds the
+            # Polars frame of them): a TODO all the same
+            ctx.needs_review(exc.reason)
+            labels = target.code.method("collect").method("to_pandas").method(
+                "set_index", list(target.const.names)).attr("index")
+            passed = {k: v.code for k, v in call.kwargs.items() if k != "index"}
+            return PandasValue(handover.to_pandas(column).method("reindex", labels, **passed))
+    if not (isinstance(target, Opaque) and isinstance(target.const, DateRange)
+            and type(target.const) is DateRange):
+        raise ctx.todo("a target other than a pd.date_range written in the script (a list, "
+                       "another index, pd.MultiIndex.from_product): a join on a frame of the "
+                       "labels")
+    frame = column.frame
+    if not unique_key(frame) or frame.dtype(frame.index[0]) != "datetime":
+        raise ctx.todo("a Series not labelled by one date key of distinct values (a groupby's): "
+                       "pandas raises for labels that repeat")
+    fill = call.const("fill_value", None, None, kinds=(int, float, type(None)))
+    if fill is None or isinstance(fill, bool):
+        raise ctx.todo("no fill_value (or one that is not a number): pandas makes the new labels "
+                       "NaN and turns integers float")
+    if column.dtype not in ("int", "float"):
+        raise ctx.todo(f"values of type {column.dtype or 'unknown'}")
+    key = frame.index[0]
+    value = column.name if column.name is not None else "values"
+    found = "_porter_found"
+    labels = "index"  # the range's name is None: pandas' unnamed index
+    values = ctx.expr(column, frame)
+    if values.text != emit.col(value).text:
+        values = values.method("alias", value)
+    right = frame.code.method("select", emit.col(key).method("alias", labels), values,
+                              emit.pl("lit", True).method("alias", found))
+    # the range's Series, by the name the script bound it to where it did
+    stamps = target.code if target.code.text.isidentifier() else target.const.code
+    range_frame = emit.pl("LazyFrame", emit.atom("{" + emit.lit(labels).text + ": "
+                                                + stamps.text + "}"))
+    if value in (labels, found):
+        raise ctx.todo(f"a Series named {value!r}")
+    filled = emit.when(emit.col(found), emit.col(value), fill)
+    code = range_frame.method("join", right, on=labels, how="left", maintain_order="left") \
+        .method("select", labels, filled.method("alias", value))
+    dtype = "float" if column.dtype == "float" or isinstance(fill, float) else "int"
+    rows = fresh_token()
+    # each timestamp of the range once, in ascending order: a groupby's key order
+    result = Frame(code, columns=(labels, value), index=(labels,), index_unnamed=True,
+                   dtypes=((labels, "datetime"), (value, dtype)), labels_intact=False,
+                   rows=rows, grouped_rows=rows)
+    return Column(emit.col(value), frame=result, name=column.name, dtype=dtype)
+
+
+def _reindex_product(call: PandasCall, column: Column, target: Opaque, ctx: RuleContext) -> Value:
+    """s.reindex(pd.MultiIndex.from_product(levels, names=...), fill_value=x) of a groupby's
+    Series on as many keys: a left join of the Series on the cross join of the levels (the
+    Series' keys matched to the levels by position, as pandas matches them), every
+    combination once in the product's order; one the Series has no row for gets fill_value,
+    a missing value it had stays missing. The result is labelled by the levels' names."""
+    product = target.const
+    frame = column.frame
+    keys = list(frame.index)
+    if len(keys) != len(product.names) or frame.grouped_rows != frame.rows \
+            or row_labels_carried(frame):
+        raise ctx.todo("a Series not labelled by as many keys of distinct combinations (a "
+                       "groupby's) as the product has levels")
+    kinds = {"str": "pl.String", "int": "pl.Int64"}
+    if not all(frame.dtype(k) in kinds for k in keys):
+        raise ctx.todo("keys of a type other than text or whole numbers")
+    fill = call.const("fill_value", None, None, kinds=(int, float, type(None)))
+    if fill is None or isinstance(fill, bool):
+        raise ctx.todo("no fill_value (or one that is not a number): pandas makes the new labels "
+                       "NaN and turns integers float")
+    if column.dtype not in ("int", "float"):
+        raise ctx.todo(f"values of type {column.dtype or 'unknown'}")
+    value = column.name if column.name is not None else "values"
+    found = "_porter_found"
+    if value in (*product.names, found):
+        raise ctx.todo(f"a Series named {value!r} like a level")
+    values = ctx.expr(column, frame)
+    if values.text != emit.col(value).text:
+        values = values.method("alias", value)
+    mark = emit.pl("lit", True).method("alias", found)
+    if frame.columns == (*keys, value) and tuple(keys) == product.names \
+            and values.text == emit.col(value).text:
+        right = frame.code.method("with_columns", mark)
+    else:
+        right = frame.code.method("select", *(emit.col(k) if k == n else
+                                              emit.col(k).method("alias", n)
+                                              for k, n in zip(keys, product.names)),
+                                  values, mark)
+    names = list(product.names)
+    # the levels as the keys' types (an empty list has none of its own)
+    labels = target.code.method("cast", emit.atom(
+        "{" + ", ".join(f"{emit.lit(n).text}: {kinds[frame.dtype(k)]}"
+                        for k, n in zip(keys, names)) + "}"))
+    filled = emit.when(emit.col(found), emit.col(value), fill)
+    code = labels.method("join", right, on=names, how="left", maintain_order="left") \
+        .method("select", *names, filled.method("alias", value))
+    dtype = "float" if column.dtype == "float" or isinstance(fill, float) else "int"
+    rows = fresh_token()
+    # every combination once: what unstack lays out (pandas' levels are sorted, as porter
+    # lays them out)
+    result = Frame(code, columns=(*names, value), index=tuple(names),
+                   dtypes=(*((n, frame.dtype(k)) for k, n in zip(keys, names)), (value, dtype)),
+                   labels_intact=False, rows=rows, grouped_rows=rows)
+    return Column(emit.col(value), frame=result, name=column.name, dtype=dtype)

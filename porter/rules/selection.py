@@ -23,7 +23,7 @@ from porter.translate.handover import series_frame, to_pandas
 if TYPE_CHECKING:
     from porter.rules.groupby import RowPosition
 from porter.translate.values import (
-    Accessor, Column, Frame, Module, Opaque, PandasValue, Parts, Scalar, Value,
+    Accessor, Column, Frame, Module, Opaque, PandasValue, Parts, Scalar, Value, fresh_token,
 )
 
 
@@ -345,6 +345,8 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
         frame = derive(frame, code, same_rows=False)
     elif isinstance(rows, Column):
         frame = derive(frame, frame.code.method("filter", ctx.expr(rows, frame)), same_rows=False)
+    elif _one_label(rows) and isinstance(cols, Opaque) and isinstance(cols.const, str):
+        return _labelled_value(frame, rows, cols, ctx)  # df.loc["label", "c"], as df.at
     elif not (isinstance(rows, Opaque) and rows.const == slice(None)):
         raise Unsupported("rows chosen by index label: the index is not data in Polars")
     if cols is None or (isinstance(cols, Opaque) and cols.const == slice(None)):
@@ -380,6 +382,53 @@ def _row_at(frame: Frame, row: "RowPosition", ctx: RuleContext) -> Value:
     if chain.base is not None and chain.steps:  # laid out one step per line, .iloc[0] the last
         return PandasValue(Code(f"{chain.text}.iloc[0]", emit.ATOM, chain.base, (*chain.steps, ".iloc[0]")))
     return PandasValue(chain.attr("iloc").index(0))
+
+
+@rule("frame.at")
+def frame_at(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.at["label", "c"] -> df.filter(pl.col(key) == "label").select("c").collect().item(),
+    on a table labelled by one key column (set_index, read_csv(index_col=), a groupby's keys,
+    crosstab, pivot_table).
+
+    Handles: a label no row holds raises, as in pandas (KeyError there).
+    Caveats: the value is Python's: None for a missing value where pandas gives nan, an int
+    where pandas gives numpy's int64 (which divides by zero to inf); a label several rows hold
+    raises where pandas gives a Series of their values (0.9). Labels of several keys, row
+    numbers and a label of another type than the key are TODOs."""
+    frame = frame_of(call)
+    if len(call.args) != 2:
+        raise ctx.todo("one label and one column name: df.at[label, column]")
+    rows, cols = call.args
+    if not (_one_label(rows) and isinstance(cols, Opaque) and isinstance(cols.const, str)):
+        raise ctx.todo("one label and one column name written in the script")
+    return _labelled_value(frame, rows, cols, ctx)
+
+
+def _one_label(value: Value) -> bool:
+    return isinstance(value, Opaque) and value.is_const and isinstance(value.const, (str, int)) \
+        and not isinstance(value.const, bool)
+
+
+def _labelled_value(frame: Frame, label: Opaque, col: Opaque, ctx: RuleContext) -> Value:
+    """The value of column `col` on the row labelled `label` of a table labelled by one key
+    column: the one row whose key is the label, its value read with item() (which raises
+    unless exactly one row has the label)."""
+    if len(frame.index) != 1 or row_labels_carried(frame):
+        raise ctx.todo("rows chosen by index label: the index is not data in Polars (one key "
+                       "column holding the labels is ported)")
+    key, name = frame.index[0], col.const
+    kinds = {str: "str", int: "int"}
+    if kinds.get(type(label.const)) != frame.dtype(key):
+        raise ctx.todo("a label of another type than the key column (or a key of unknown type)")
+    if name == key or frame.columns is not None and name not in frame.columns:
+        raise ctx.todo(f"{name!r} is not a column of the frame (pandas raises KeyError)")
+    ctx.lower("the value is Python's: None for a missing value where pandas gives nan, an int "
+              "where pandas gives numpy's int64; a label several rows hold raises where pandas "
+              "gives a Series of their values", 0.9)
+    code = frame.code.method("filter", emit.binop(emit.col(key), "==", emit.lit(label.const))) \
+        .method("select", name).method("collect").method("item")
+    pytype = frame.dtype(name)
+    return Scalar(code, pytype=pytype if pytype in ("int", "float", "str", "bool") else None)
 
 
 def _column_label_slice(frame: Frame, piece: slice) -> Frame:
@@ -1401,3 +1450,80 @@ def select_dtypes(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.lower("the columns are picked by the types porter knows: pandas reads a file with a "
               "header and no rows as text in every column", 0.95)
     return select_columns(frame, frame.code.method("select", *names), names)
+
+
+@rule("series.xs")
+def series_xs(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.xs("tenor", level="part") -> the rows whose key "part" is the label, .drop("part"),
+    on a Series labelled by two or more keys (a groupby's).
+
+    Handles: level by name or position; the Series keeps the other keys as its labels, in the
+    groupby's order (each combination of them once).
+    Caveats: a label no row holds gives no rows where pandas raises KeyError (0.95);
+    drop_level=False, a tuple of labels across levels, several levels and a label of another
+    type than the key are TODOs."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "key", "level", "drop_level", positional=1)
+    frame = column.frame
+    keys = list(frame.index)
+    label = call.arg("key", 0, None)
+    if len(keys) < 2 or row_labels_carried(frame):
+        raise ctx.todo("a Series not labelled by two or more keys (a groupby's): select the rows "
+                       "by their key column")
+    if not (isinstance(label, Opaque) and label.is_const and isinstance(label.const, (str, int))
+            and not isinstance(label.const, bool)):
+        raise ctx.todo("one label written in the script (a tuple across levels is not ported)")
+    level = call.const("level", None, None, kinds=(str, int, type(None)))
+    if level is None:
+        level = 0  # the first level, as pandas reads a label without level=
+    if isinstance(level, bool):
+        raise ctx.todo("level as True/False")
+    if isinstance(level, int):
+        if not -len(keys) <= level < len(keys):
+            raise ctx.todo(f"level {level} out of range (pandas raises)")
+        level = keys[level]
+    if level not in keys:
+        raise ctx.todo(f"level {level!r} is not a key (pandas raises)")
+    if call.const("drop_level", None, True, kinds=(bool,)) is not True:
+        raise ctx.todo("drop_level=False: keep the key column")
+    kinds = {str: "str", int: "int"}
+    if kinds.get(type(label.const)) != frame.dtype(level):
+        raise ctx.todo("a label of another type than the key (or a key of unknown type)")
+    if level in column.refs:
+        raise ctx.todo("values computed from the key taken away")
+    ctx.lower("a label no row holds gives an empty Series where pandas raises KeyError", 0.95)
+    column = values_fixed(column)  # a rank or running sum keeps the values of all rows
+    frame = column.frame
+    code = frame.code.method("filter", emit.binop(emit.col(level), "==", emit.lit(label.const))) \
+        .method("drop", level)
+    rows = fresh_token()
+    # the other keys of a groupby's sorted result, once each and in order, where they were so
+    grouped = rows if frame.grouped_rows == frame.rows else None
+    left = derive(frame, code, same_rows=False, rows=rows, grouped_rows=grouped,
+                  index=tuple(k for k in keys if k != level),
+                  columns=tuple(c for c in frame.columns if c != level)
+                  if frame.columns is not None else None,
+                  dtypes=tuple((c, t) for c, t in frame.dtypes if c != level))
+    return replace(column, code=ctx.expr(column, frame), frame=left, sites=())
+
+
+@rule("series.is_unique")
+def series_is_unique(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.is_unique / df.index.is_unique -> pl.col(c).is_unique().all(), collected.
+
+    Handles: missing values are one value (two of them are not unique), as in pandas; NaN is
+    made missing first; an empty Series is unique in both."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    if column.element:
+        raise ctx.todo("is_unique of one value")
+    values = ctx.expr(column, column.frame)
+    if column.dtype not in ("int", "str", "bool", "date", "datetime"):
+        values = values.method("fill_nan", None) if column.dtype == "float" else values
+        if column.dtype not in ("float",):
+            raise ctx.todo("values of a type porter does not know (NaN and missing values are "
+                           "one value in pandas)")
+    code = column.frame.code.method("select", values.method("is_unique").method("all")) \
+        .method("collect").method("item")
+    return Scalar(code, pytype="bool")

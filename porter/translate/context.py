@@ -299,6 +299,32 @@ def with_row_labels(frame: Frame) -> Frame:
                    dtypes=(*frame.dtypes, (ROW_LABELS, "int")))
 
 
+def labelled_frame(frame: Frame, key: str) -> Frame:
+    """`frame` after set_index(key) (or read_csv(index_col=key)), for the calls that read it as
+    a table labelled by `key`: the key column first, held as pandas' index (as a groupby's
+    keys are), its labels neither known to be distinct nor sorted (grouped_rows unset)."""
+    code = frame.code
+    columns = frame.columns
+    if columns is None and not code.text.isidentifier():
+        # a name bound to the labelled frame holds the key first already (engine.bind)
+        code = code.method("select", key, emit.pl("exclude", key))
+    elif columns is not None and columns[0] != key:
+        columns = (key, *(c for c in columns if c != key))
+        code = code.method("select", *columns)
+    return replace(frame, code=code, columns=columns, index=(key,), index_unnamed=False,
+                   labels_intact=False, grouped_rows=None, number_cells=None)
+
+
+def number_cells(frame: Frame) -> tuple[bool, str | None]:
+    """Whether every column of `frame` but its index keys holds numbers (a pivoted table as
+    unstack or crosstab made it, nothing done to it since), and their type when porter knows
+    it."""
+    mark = frame.number_cells
+    if mark is None or mark[0] != frame.code.text or frame.columns is not None:
+        return False, None
+    return True, mark[1]
+
+
 def row_labels_carried(frame: Frame) -> bool:
     """Whether `frame` holds the row labels a filter or sort left in its column "index"
     (with_row_labels)."""

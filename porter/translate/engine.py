@@ -28,7 +28,7 @@ from porter.translate.functions import (
 from porter.rules.assign import FRAME_STAYS_PANDAS, INTERVAL_MAKERS
 from porter.translate.writes import FileChanges, FreshSchemas, batch_writes, is_sink_text
 from porter.translate.context import (
-    PandasCall, Unsupported, expr_in, grouping_code, select_columns, value_dtype,
+    PandasCall, Unsupported, expr_in, grouping_code, labelled_frame, select_columns, value_dtype,
     with_column_updates, with_row_labels,
 )
 from porter.translate.evaluate import Evaluator, Services, parts_current
@@ -2014,7 +2014,11 @@ class _Walker:
         if isinstance(value, Frame):
             self.note_stale_series(name, value, env)
             self.note_parents(code, env)
-            env[name] = replace(value, code=emit.atom(name), sites=(), binding=self.statement_key)
+            cells = value.number_cells
+            if cells is not None:  # still the pivoted table, now under its name
+                cells = (name, cells[1]) if cells[0] == code.text else None
+            env[name] = replace(value, code=emit.atom(name), sites=(), binding=self.statement_key,
+                                number_cells=cells)
             if self.emit_code and (self.computed_once() or self.read_changed_later()) \
                     and not _is_collected(code):
                 code = code.method("collect").method("lazy")
@@ -2082,14 +2086,9 @@ class _Walker:
                                  "changed: pandas computes it", *self.services.statement_lines)
                 return emit.layout_chain(code, indent, f"{name} = "), [*value.sites, site]
         elif isinstance(value, Indexed) and not value.grouped and self.changed_later(name):
-            # changed in place later (df["c"] = ..., df.sort_index(inplace=True)): pandas
-            # holds it, with its labels
-            env[name] = PandasValue(emit.atom(name))
-            site = SiteDraft("frame.set_index", "handover", "todo", 0.0,
-                             f"`{name}` keeps its row labels and is changed in place later: "
-                             "pandas holds it; keep the key as a column and port the changes",
-                             *self.services.statement_lines)
-            return emit.layout_chain(value.code, indent, f"{name} = "), [*value.sites, site]
+            # changed in place later (df["c"] = ..., df.sort_index(inplace=True)): the table
+            # labelled by the key, its column held as the index, as a groupby's keys are
+            return self.bind(name, labelled_frame(value.frame, value.key), env, indent)
         elif isinstance(value, Indexed) and not value.grouped:
             # `df = df.set_index("ts")`: the name holds the Polars frame (the column kept);
             # pandas code porter does not port gets it with its labels set again
@@ -2105,12 +2104,15 @@ class _Walker:
                 value = replace(value, frame=replace(frame, columns=columns))
             else:
                 code = frame.code
-            if self.emit_code and self.read_changed_later() and not _is_collected(code):
+            if self.emit_code and (self.computed_once() or self.read_changed_later()) \
+                    and not _is_collected(code):
                 code = code.method("collect").method("lazy")  # see read_changed_later
             self.note_parents(code, env)
             kept = replace(value.frame, code=emit.atom(name), sites=(), binding=self.statement_key)
             env[name] = replace(value, code=handover.to_pandas(kept).method("set_index", value.key),
                                 frame=kept, sites=())
+            if code.text == name:  # `df = df.set_index("k")` of a frame holding k first already
+                return "", list(value.sites)
         elif isinstance(value, Grouped) and value.frame.code.text.isidentifier() \
                 and not value.prepared and value.selection is None \
                 and self.changed_later(value.frame.code.text):
@@ -2853,8 +2855,9 @@ def _after_loop(env: dict[str, Value], handed: dict[str, Frame]) -> dict[str, Va
 
 
 def _plan_of(value: Value | None) -> Value | None:
-    """The frame whose plan a named value runs: a pending groupby runs its frame's."""
-    return value.frame if isinstance(value, Grouped) else value
+    """The frame whose plan a named value runs: a pending groupby runs its frame's, a table
+    labelled by a column (set_index, read_csv(index_col=)) its frame's."""
+    return value.frame if isinstance(value, (Grouped, Indexed)) else value
 
 
 def _executions(tree: ast.AST) -> list[set[str]]:

@@ -25,7 +25,8 @@ from porter.model import MappingEntry, SiteDraft
 from porter.translate import handover
 from porter.translate.rewrite import BINARY_OPS, ChildRewriter, precedence
 from porter.translate.context import (
-    MIXED_COLUMN, PandasCall, RuleContext, Unsupported, derived_column, lost_float_ints,
+    MIXED_COLUMN, PandasCall, RuleContext, Unsupported, derived_column, labelled_frame,
+    lost_float_ints,
 )
 from porter.translate.values import (
     MISSING, Accessor, BoundMethod, Column, Frame, FrameList, Grouped, Indexed, Indexer, Items,
@@ -404,8 +405,18 @@ class Evaluator:
             if qualname == "numpy.inf":
                 return self.opaque(node, math.inf)
             return Module(Code(self.source(node)), qualname=qualname, sites=receiver.sites)
+        if isinstance(receiver, Indexed) and receiver.grouped and receiver.selection \
+                and name not in _INDEXED_METHODS[True]:
+            # df.set_index(k).groupby(keys)["c"].sum(): the groups of the frame's columns
+            # (the labels are not among the columns taken)
+            receiver = self.regrouped(receiver, node)
+        if isinstance(receiver, Indexed) and not receiver.grouped \
+                and name not in _INDEXED_METHODS[False]:
+            # df.set_index(k).<anything but resample / groupby / reset_index>: the table
+            # labelled by k, its key column held as the index
+            receiver = labelled_frame(receiver.frame, receiver.key)
         if isinstance(receiver, Frame):
-            if name in ("loc", "iloc") or name == "ix" and name not in (receiver.columns or ()):
+            if name in ("loc", "iloc", "at") or name == "ix" and name not in (receiver.columns or ()):
                 # (.ix: label-or-position indexing pandas 1.0 removed, rules/legacy.py)
                 return Indexer(Code(self.source(node)), frame=receiver, kind=name,
                                sites=receiver.sites)
@@ -741,8 +752,11 @@ class Evaluator:
                 and name != "len":
             return self.generic(node)  # round(parts), list(parts)…: pandas' DataFrame
         if name in _BUILTIN_RULES and positional and is_pandas(positional[0]):
-            call = PandasCall(positional[0], name, positional[1:], keywords, node)
-            return self.dispatch(_BUILTIN_RULES[name].format(kind=_prefix(positional[0])), call, node)
+            first = positional[0]
+            if isinstance(first, Indexed) and not first.grouped:
+                first = labelled_frame(first.frame, first.key)  # len(df.set_index("k"))
+            call = PandasCall(first, name, positional[1:], keywords, node)
+            return self.dispatch(_BUILTIN_RULES[name].format(kind=_prefix(first)), call, node)
         # display: print(df) prints the collected frame
         parts = [self.for_display(v) for v in positional]
         parts += [f"{k}={self.for_display(v)}" for k, v in keywords.items()]
@@ -890,6 +904,8 @@ class Evaluator:
         if isinstance(receiver, Indexer):
             call = PandasCall(receiver.frame, receiver.kind, tuple(keys), node=node)
             return self.dispatch(f"frame.{receiver.kind}", call, node)
+        if isinstance(receiver, Indexed) and not receiver.grouped:
+            receiver = labelled_frame(receiver.frame, receiver.key)  # df.set_index(k)["c"]
         call = PandasCall(receiver, "getitem", (key_value,), node=node)
         return self.dispatch(_getitem_key(receiver, key_value), call, node)
 
@@ -997,6 +1013,19 @@ class Evaluator:
         return self.dispatch("series.unary", PandasCall(operand, op, node=node), node)
 
     # -- rules ----------------------------------------------------------------------------------
+    def regrouped(self, indexed: Indexed, node: cst.CSTNode) -> Value:
+        """A groupby of a labelled table with columns taken (set_index(k).groupby(g)["c"]) as
+        the same groupby of its frame: pandas leaves the labels out of what it aggregates."""
+        keys = list(indexed.grouped)
+        by: Any = keys[0] if len(keys) == 1 else keys
+        grouped = self.dispatch("frame.groupby", PandasCall(
+            indexed.frame, "groupby", (Opaque(emit.lit(by), const=by),), node=node), node)
+        names: Any = indexed.selection[0] if indexed.single else list(indexed.selection or ())
+        if not isinstance(grouped, Grouped):
+            return grouped
+        return self.dispatch("groupby.getitem", PandasCall(
+            grouped, "getitem", (Opaque(emit.lit(names), const=names),), node=node), node)
+
     def dispatch(self, key: str, call: PandasCall, node: cst.CSTNode) -> Value:
         table, registry = self.services.table, self.services.registry
         entry = table.get(key)

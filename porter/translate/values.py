@@ -96,6 +96,11 @@ class Frame(Value):
     # frame that a step wrote without saying (see context.nullable_mark)
     nullable_ints: tuple[tuple[str, str], ...] | None = field(default=None, kw_only=True)
     unsure_ints: tuple[str, ...] = field(default=(), kw_only=True)
+    # a pivoted table whose columns porter does not know (unstack, crosstab) holds numbers in
+    # every column but its index keys: the code of the frame that is that table (a step since
+    # writes other code, so the mark no longer holds; context.number_cells) and the cells'
+    # type ("int", "float", or None when it depends on the data)
+    number_cells: tuple[str, str | None] | None = field(default=None, kw_only=True)
 
     def dtype(self, column: str) -> str | None:
         return dict(self.dtypes).get(column)
