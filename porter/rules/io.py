@@ -86,16 +86,16 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     df.set_index("k"): the column kept first, held as the index).
 
     index_col: one column by name, or by position where porter knows the columns (--data);
-    several columns and index_col with usecols are TODOs. See _read_csv for the rest."""
+    several columns and index_col with usecols are TODOs. See _read_modern_csv for the rest."""
     index_col = call.const("index_col", None, None, kinds=(str, int, type(None)))
     if index_col is None:
-        return _read_csv(call, ctx)
+        return _read_modern_csv(call, ctx)
     if isinstance(index_col, bool):
         raise ctx.todo("index_col=False / True: read without it")
     if call.has("usecols", 1):
         raise ctx.todo("index_col with usecols: set_index after reading")
-    frame = _read_csv(replace(call, kwargs={k: v for k, v in call.kwargs.items() if k != "index_col"}),
-                      ctx)
+    frame = _read_modern_csv(
+        replace(call, kwargs={k: v for k, v in call.kwargs.items() if k != "index_col"}), ctx)
     if not isinstance(frame, Frame):
         raise ctx.todo("index_col on a read porter keeps on pandas")
     if isinstance(index_col, int):
@@ -109,7 +109,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                    sites=frame.sites)
 
 
-def _read_csv(call: PandasCall, ctx: RuleContext) -> Value:
+def _read_modern_csv(call: PandasCall, ctx: RuleContext) -> Value:
     """pd.read_csv -> pl.scan_csv.
 
     Handles: pandas' missing-value tokens (null_values), type inference over the whole file
