@@ -1214,11 +1214,14 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         return pandas_scalar(column, expr, "datetime" if column.dtype == "datetime" else None)
     if column.float_int is not None and column.dtype == "int" and how in ("sum", "min", "max"):
         return _float_int_reduction(column, code, expr)
+    float64 = not ("Float32" in code.text or float32_possible(ctx))
     if how == "sum" and column.dtype == "float" and not column.element:
-        return _numpy_sum(column, code, expr)
-    if how == "mean" and column.dtype == "float" and not column.element \
-            and not ("Float32" in code.text or float32_possible(ctx)):
-        return _numpy_mean(column, code, expr)
+        # inside an expression of the same rows (d["v"] / d["v"].sum()) the total is numpy's
+        # pairwise sum too: Polars' own sum adds in another order and the share could differ
+        # in the last digit (0.23972844534962662 for 0.2397284453496266)
+        return _numpy_sum(column, code, pandas_reduce(code) if float64 else expr)
+    if how == "mean" and column.dtype == "float" and not column.element and float64:
+        return _numpy_mean(column, code, pandas_reduce(code, "mean").method("fill_nan", None))
     if how in ("min", "max") and column.dtype is None:
         return _unknown_type_extreme(column, how, expr, ctx)
     if how in NAN_WHEN_EMPTY:
