@@ -757,8 +757,18 @@ def target_columns(grouped: Grouped, ctx: RuleContext) -> list[str] | None:
         raise Unsupported(f"the key {grouped.keys[0]!r} is computed and named like a column, "
                           "which pandas aggregates too: select the columns to aggregate")
     if grouped.frame.columns is not None:
-        return [c for c in grouped.frame.columns if c not in grouped.keys]
+        # pandas aggregates the columns, never the index: the row labels a filter or sort
+        # left in the column "index" (or an index set_index made) are not aggregated
+        return [c for c in grouped.frame.columns
+                if c not in grouped.keys and c not in grouped.frame.index]
     return None
+
+
+def _all_but_index(grouped: Grouped) -> Code:
+    """pl.all() in the group_by's agg (the keys left out by Polars), without the columns that
+    hold the frame's index, which pandas never aggregates."""
+    index = [c for c in grouped.frame.index if c not in grouped.keys]
+    return emit.pl("all").method("exclude", *index) if index else emit.pl("all")
 
 
 @rule(*(f"groupby.{how}" for how in AGGREGATIONS))
@@ -802,9 +812,9 @@ def reduce(call: PandasCall, ctx: RuleContext) -> Value:
                   "(pandas concatenates or raises); run with --data to know them", 0.85)
         if min_count > 0:
             raise Unsupported("min_count over columns porter does not know (run with --data)")
-        expr = agg_expr(emit.pl("all"), how)
+        expr = agg_expr(_all_but_index(grouped), how)
         if how in ("std", "var") and ddof != 1:
-            expr = emit.pl("all").method(how, ddof=ddof)
+            expr = _all_but_index(grouped).method(how, ddof=ddof)
         return aggregate(grouped, [expr], [], ctx)
     exprs = []
     for name in columns:
