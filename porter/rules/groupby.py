@@ -1232,6 +1232,9 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         return _numpy_sum(column, code, pandas_reduce(code) if float64 else expr)
     if how == "mean" and column.dtype == "float" and not column.element and float64:
         return _numpy_mean(column, code, pandas_reduce(code, "mean").method("fill_nan", None))
+    if how in ("sum", "mean") and column.dtype is None and not column.element \
+            and not float32_possible(ctx):
+        return _total_of_unknown_type(column, code, expr, how)
     if how in ("min", "max") and column.dtype is None:
         return _unknown_type_extreme(column, how, expr, ctx)
     if how in NAN_WHEN_EMPTY:
@@ -1353,6 +1356,59 @@ def pandas_mean(values):
     total = values.fill_null(0.0).to_numpy().sum()
     return total / values.count() if values.count() else total * float("nan")
 '''
+
+
+# s.sum() / s.mean() of a column whose type porter does not know (no --data): a float column
+# is added as pandas adds it, which only the column's values tell
+TOTAL_FUNCTION = "pandas_total"
+TOTAL_DEFINITION = '''\
+def pandas_total(frame, how="sum"):
+    """s.sum() / s.mean() of a column whose type was not known when the script was converted,
+    from a frame of one row: the column's values as a list, then Polars' own total. A float
+    column is added as pandas adds it, with numpy's pairwise sum, missing values counted 0
+    (Polars adds in another order, and the last digit could differ: 11532.650000000001 for
+    11532.65), its mean that sum over the count of values (NaN when there is none); any other
+    column keeps Polars' total, as a numpy value as pandas gives it."""
+    values = frame.to_series(0)[0]
+    if not values.dtype.is_float() or how == "mean" and values.dtype != pl.Float64:
+        return frame.to_series(1).to_numpy()[0]
+    total = values.fill_null(0.0).to_numpy().sum()
+    if how == "sum":
+        return total
+    return total / values.count() if values.count() else total * float("nan")
+'''
+
+
+# the same inside an expression of the column's own rows (d["v"] / d["v"].sum())
+TOTAL_EXPR_FUNCTION = "pandas_column_total"
+TOTAL_EXPR_DEFINITION = '''\
+def pandas_column_total(values, how="sum"):
+    """values.sum() / values.mean() inside an expression, of a column whose type was not known
+    when the script was converted: a float column added as pandas adds it, with numpy's pairwise
+    sum, missing values counted 0 (the mean: of float64, over the count of values); any other
+    column with Polars' own sum or mean (text fails, as Polars' own sum)."""
+    def total(column):
+        if column.dtype.is_float() and (how == "sum" or column.dtype == pl.Float64):
+            result = column.fill_null(0.0).to_numpy().sum()
+            if how == "mean":
+                result = result / column.count() if column.count() else None
+            return pl.Series([result], dtype=column.dtype)
+        return column.to_frame().select(getattr(pl.all(), how)()).to_series()
+
+    return values.map_batches(total, returns_scalar=True)
+'''
+
+
+def _total_of_unknown_type(column: Column, code: Code, expr: Code, how: str) -> Scalar:
+    """The sum or mean of a column of a type porter does not know, as pandas computes it
+    (TOTAL_DEFINITION): numpy's pairwise sum where the column holds floats."""
+    frame = column.frame.code.method("select", code.method("implode").method("alias", "values"),
+                                     expr.method("alias", "total")).method("collect")
+    value = emit.call(TOTAL_FUNCTION, frame, *(["mean"] if how == "mean" else []))
+    inside = emit.call(TOTAL_EXPR_FUNCTION, code, *(["mean"] if how == "mean" else []))
+    agg_column = Column(inside, frame=column.frame, name=column.name, refs=column.refs,
+                        versions=column.versions)
+    return Scalar(value, agg=agg_column)
 
 
 def _numpy_mean(column: Column, code: Code, expr: Code) -> Scalar:
