@@ -1225,15 +1225,22 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
     if column.float_int is not None and column.dtype == "int" and how in ("sum", "min", "max"):
         return _float_int_reduction(column, code, expr)
     float64 = not ("Float32" in code.text or float32_possible(ctx))
+    # a group's values inside a function of the group (transform(lambda s: s - s.mean())): the
+    # reduction is computed per group by Polars' own (a Python function per group would be
+    # slow); the rules there say that the last digit can differ
+    in_group = GROUP_VALUES in column.frame.code.text
+    if how == "sum" and column.dtype == "float" and not column.element and in_group:
+        return _numpy_sum(column, code, expr)
     if how == "sum" and column.dtype == "float" and not column.element:
         # inside an expression of the same rows (d["v"] / d["v"].sum()) the total is numpy's
         # pairwise sum too: Polars' own sum adds in another order and the share could differ
         # in the last digit (0.23972844534962662 for 0.2397284453496266)
         return _numpy_sum(column, code, pandas_reduce(code) if float64 else expr)
     if how == "mean" and column.dtype == "float" and not column.element and float64:
-        return _numpy_mean(column, code, pandas_reduce(code, "mean").method("fill_nan", None))
+        inside = expr if in_group else pandas_reduce(code, "mean").method("fill_nan", None)
+        return _numpy_mean(column, code, inside)
     if how in ("sum", "mean") and column.dtype is None and not column.element \
-            and not float32_possible(ctx):
+            and not float32_possible(ctx) and not in_group:
         return _total_of_unknown_type(column, code, expr, how)
     if how in ("min", "max") and column.dtype is None:
         return _unknown_type_extreme(column, how, expr, ctx)
@@ -1332,6 +1339,10 @@ def pandas_scalar(column: Column, expr: Code, pytype: str | None = None) -> Scal
                         versions=column.versions,
                         dtype="datetime" if pytype == "datetime" else None)
     return Scalar(value, pytype=pytype, agg=agg_column)
+
+
+# the name a group stands under inside a function of the group (windows.GROUP_FRAME)
+GROUP_VALUES = "_porter_group"
 
 
 def _numpy_sum(column: Column, code: Code, expr: Code) -> Scalar:
