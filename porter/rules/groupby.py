@@ -758,8 +758,18 @@ def target_columns(grouped: Grouped, ctx: RuleContext) -> list[str] | None:
         raise Unsupported(f"the key {grouped.keys[0]!r} is computed and named like a column, "
                           "which pandas aggregates too: select the columns to aggregate")
     if grouped.frame.columns is not None:
-        return [c for c in grouped.frame.columns if c not in grouped.keys]
+        # pandas aggregates the columns, never the index: the row labels a filter or sort
+        # left in the column "index" (or an index set_index made) are not aggregated
+        return [c for c in grouped.frame.columns
+                if c not in grouped.keys and c not in grouped.frame.index]
     return None
+
+
+def _all_but_index(grouped: Grouped) -> Code:
+    """pl.all() in the group_by's agg (the keys left out by Polars), without the columns that
+    hold the frame's index, which pandas never aggregates."""
+    index = [c for c in grouped.frame.index if c not in grouped.keys]
+    return emit.pl("all").method("exclude", *index) if index else emit.pl("all")
 
 
 @rule(*(f"groupby.{how}" for how in AGGREGATIONS))
@@ -803,9 +813,9 @@ def reduce(call: PandasCall, ctx: RuleContext) -> Value:
                   "(pandas concatenates or raises); run with --data to know them", 0.85)
         if min_count > 0:
             raise Unsupported("min_count over columns porter does not know (run with --data)")
-        expr = agg_expr(emit.pl("all"), how)
+        expr = agg_expr(_all_but_index(grouped), how)
         if how in ("std", "var") and ddof != 1:
-            expr = emit.pl("all").method(how, ddof=ddof)
+            expr = _all_but_index(grouped).method(how, ddof=ddof)
         return aggregate(grouped, [expr], [], ctx)
     exprs = []
     for name in columns:
@@ -1215,11 +1225,24 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         return pandas_scalar(column, expr, "datetime" if column.dtype == "datetime" else None)
     if column.float_int is not None and column.dtype == "int" and how in ("sum", "min", "max"):
         return _float_int_reduction(column, code, expr)
-    if how == "sum" and column.dtype == "float" and not column.element:
+    float64 = not ("Float32" in code.text or float32_possible(ctx))
+    # a group's values inside a function of the group (transform(lambda s: s - s.mean())): the
+    # reduction is computed per group by Polars' own (a Python function per group would be
+    # slow); the rules there say that the last digit can differ
+    in_group = GROUP_VALUES in column.frame.code.text
+    if how == "sum" and column.dtype == "float" and not column.element and in_group:
         return _numpy_sum(column, code, expr)
-    if how == "mean" and column.dtype == "float" and not column.element \
-            and not ("Float32" in code.text or float32_possible(ctx)):
-        return _numpy_mean(column, code, expr)
+    if how == "sum" and column.dtype == "float" and not column.element:
+        # inside an expression of the same rows (d["v"] / d["v"].sum()) the total is numpy's
+        # pairwise sum too: Polars' own sum adds in another order and the share could differ
+        # in the last digit (0.23972844534962662 for 0.2397284453496266)
+        return _numpy_sum(column, code, pandas_reduce(code) if float64 else expr)
+    if how == "mean" and column.dtype == "float" and not column.element and float64:
+        inside = expr if in_group else pandas_reduce(code, "mean").method("fill_nan", None)
+        return _numpy_mean(column, code, inside)
+    if how in ("sum", "mean") and column.dtype is None and not column.element \
+            and not float32_possible(ctx) and not in_group:
+        return _total_of_unknown_type(column, code, expr, how)
     if how in ("min", "max") and column.dtype is None:
         return _unknown_type_extreme(column, how, expr, ctx)
     if how in NAN_WHEN_EMPTY:
@@ -1319,6 +1342,10 @@ def pandas_scalar(column: Column, expr: Code, pytype: str | None = None) -> Scal
     return Scalar(value, pytype=pytype, agg=agg_column)
 
 
+# the name a group stands under inside a function of the group (windows.GROUP_FRAME)
+GROUP_VALUES = "_porter_group"
+
+
 def _numpy_sum(column: Column, code: Code, expr: Code) -> Scalar:
     """The sum of a float column as pandas' Series.sum() computes it: numpy's pairwise sum in
     the column's own type (np.float32(57.8) for float32), missing values counted 0. Polars
@@ -1341,6 +1368,59 @@ def pandas_mean(values):
     total = values.fill_null(0.0).to_numpy().sum()
     return total / values.count() if values.count() else total * float("nan")
 '''
+
+
+# s.sum() / s.mean() of a column whose type porter does not know (no --data): a float column
+# is added as pandas adds it, which only the column's values tell
+TOTAL_FUNCTION = "pandas_total"
+TOTAL_DEFINITION = '''\
+def pandas_total(frame, how="sum"):
+    """s.sum() / s.mean() of a column whose type was not known when the script was converted,
+    from a frame of one row: the column's values as a list, then Polars' own total. A float
+    column is added as pandas adds it, with numpy's pairwise sum, missing values counted 0
+    (Polars adds in another order, and the last digit could differ: 11532.650000000001 for
+    11532.65), its mean that sum over the count of values (NaN when there is none); any other
+    column keeps Polars' total, as a numpy value as pandas gives it."""
+    values = frame.to_series(0)[0]
+    if not values.dtype.is_float() or how == "mean" and values.dtype != pl.Float64:
+        return frame.to_series(1).to_numpy()[0]
+    total = values.fill_null(0.0).to_numpy().sum()
+    if how == "sum":
+        return total
+    return total / values.count() if values.count() else total * float("nan")
+'''
+
+
+# the same inside an expression of the column's own rows (d["v"] / d["v"].sum())
+TOTAL_EXPR_FUNCTION = "pandas_column_total"
+TOTAL_EXPR_DEFINITION = '''\
+def pandas_column_total(values, how="sum"):
+    """values.sum() / values.mean() inside an expression, of a column whose type was not known
+    when the script was converted: a float column added as pandas adds it, with numpy's pairwise
+    sum, missing values counted 0 (the mean: of float64, over the count of values); any other
+    column with Polars' own sum or mean (text fails, as Polars' own sum)."""
+    def total(column):
+        if column.dtype.is_float() and (how == "sum" or column.dtype == pl.Float64):
+            result = column.fill_null(0.0).to_numpy().sum()
+            if how == "mean":
+                result = result / column.count() if column.count() else None
+            return pl.Series([result], dtype=column.dtype)
+        return column.to_frame().select(getattr(pl.all(), how)()).to_series()
+
+    return values.map_batches(total, returns_scalar=True)
+'''
+
+
+def _total_of_unknown_type(column: Column, code: Code, expr: Code, how: str) -> Scalar:
+    """The sum or mean of a column of a type porter does not know, as pandas computes it
+    (TOTAL_DEFINITION): numpy's pairwise sum where the column holds floats."""
+    frame = column.frame.code.method("select", code.method("implode").method("alias", "values"),
+                                     expr.method("alias", "total")).method("collect")
+    value = emit.call(TOTAL_FUNCTION, frame, *(["mean"] if how == "mean" else []))
+    inside = emit.call(TOTAL_EXPR_FUNCTION, code, *(["mean"] if how == "mean" else []))
+    agg_column = Column(inside, frame=column.frame, name=column.name, refs=column.refs,
+                        versions=column.versions)
+    return Scalar(value, agg=agg_column)
 
 
 def _numpy_mean(column: Column, code: Code, expr: Code) -> Scalar:

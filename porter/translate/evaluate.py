@@ -1463,10 +1463,12 @@ def _labels_from_zero(key: str, call: PandasCall) -> bool:
     """Whether the frame a TODO'd pandas function returns is labelled 0..n-1, so that it can
     come back to Polars (pl.from_pandas keeps no labels): not `pd.melt(ignore_index=False)`
     (each row's label repeated per column melted), a merge on the index (one side's labels),
-    a read with `index_col` or a JSON layout whose keys are labels, nor `pd.get_dummies` of
-    a frame or Series whose labels a filter or sort made the original row numbers (or that
-    porter does not know)."""
+    a read with `index_col` or a JSON layout whose keys are labels, a `pd.pivot_table`
+    (labelled by its index keys), nor `pd.get_dummies` of a frame or Series whose labels a
+    filter or sort made the original row numbers (or that porter does not know)."""
     kwargs = call.kwargs
+    if key == "pd.pivot_table":
+        return False  # labelled by the index keys' values, which pl.from_pandas dropped
 
     def literal(name: str, position: int | None, default: object) -> object:
         if not call.has(name, position):

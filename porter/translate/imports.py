@@ -28,6 +28,7 @@ from porter.rules.groupby import (
     GROUP_SUM_OVER_DEFINITION, GROUP_SUM_OVER_FUNCTION,
     GROUP_SUMS_DEFINITION, GROUP_SUMS_FUNCTION,
     MEAN_DEFINITION, MEAN_FUNCTION, TEXT_ARRAY_DEFINITION, TEXT_ARRAY_FUNCTION,
+    TOTAL_DEFINITION, TOTAL_EXPR_DEFINITION, TOTAL_EXPR_FUNCTION, TOTAL_FUNCTION,
     TEXT_VALUES_DEFINITION, TEXT_VALUES_FUNCTION,
 )
 from porter.rules.totals import REDUCE_DEFINITION, REDUCE_FUNCTION
@@ -154,6 +155,8 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (GROUP_QUANTILE_FUNCTION, GROUP_QUANTILE_DEFINITION),
                                  (GROUP_SKEW_FUNCTION, GROUP_SKEW_DEFINITION),
                                  (MEAN_FUNCTION, MEAN_DEFINITION),
+                                 (TOTAL_FUNCTION, TOTAL_DEFINITION),
+                                 (TOTAL_EXPR_FUNCTION, TOTAL_EXPR_DEFINITION),
                                  (REDUCE_FUNCTION, REDUCE_DEFINITION),
                                  (TEXT_VALUES_FUNCTION, TEXT_VALUES_DEFINITION),
                                  (TEXT_ARRAY_FUNCTION, TEXT_ARRAY_DEFINITION),

@@ -663,6 +663,8 @@ def _kind_from_use(node: ast.AST, parents: dict[ast.AST, ast.AST]
             return "number", set(), None
         if called in ("where", "select", "log", "sqrt", "exp", "log1p"):
             return "number", set(), None
+        if called in ("cut", "qcut") and node is parent.args[0]:
+            return "number", set(), None  # pd.cut(df["x"], bins): pandas cuts numbers only
     return None, set(), None
 
 
