@@ -269,6 +269,9 @@ def _split_argument(arg: str, indent: str, width: int, min_steps: int = 2) -> li
     before each step (inside the call's brackets no extra parentheses are needed); a chain
     on a plain name (`df.select(...)`) is broken when it has `min_steps` calls after the first."""
     if len(indent) + len(arg) + 1 <= width:
+        split = _split_operation(f"({arg})", "") if arg.count(".collect()") > 1 else None
+        if split is not None:  # two plans run in one operation: one operand per line
+            return [*(indent + line for line in split.splitlines()[:-1]), f"{indent}),"]
         return [f"{indent}{arg},"]
     parsed = _one_argument(arg)
     entries = _dict_parts(parsed) if parsed is not None else None

@@ -2048,8 +2048,11 @@ class _Walker:
                 return emit.layout_chain(value.pandas, indent, f"{name} = "), [*value.sites, site]  # type: ignore[attr-defined]
             else:
                 code = handover.series_frame(value)
-                if self.emit_code and self.read_changed_later() and not _is_collected(code):
-                    code = code.method("collect").method("lazy")  # see read_changed_later
+                if self.emit_code and (self.computed_once() or self.read_changed_later()) \
+                        and not _is_collected(code):
+                    # a Series read by two or more consumers is computed once, where it is made
+                    code = code.method("collect").method("lazy")  # (and see read_changed_later)
+                self.note_parents(code, env)
                 column = value.name if value.name is not None else "0"
                 known = (*value.frame.index, column)
                 rows = fresh_token()
@@ -2856,8 +2859,13 @@ def _after_loop(env: dict[str, Value], handed: dict[str, Frame]) -> dict[str, Va
 
 def _plan_of(value: Value | None) -> Value | None:
     """The frame whose plan a named value runs: a pending groupby runs its frame's, a table
-    labelled by a column (set_index, read_csv(index_col=)) its frame's."""
-    return value.frame if isinstance(value, (Grouped, Indexed)) else value
+    labelled by a column (set_index, read_csv(index_col=)) its frame's, a Series kept in a
+    name the frame it is bound as."""
+    if isinstance(value, (Grouped, Indexed)):
+        return value.frame
+    if isinstance(value, Column) and value.frame.binding is not None:
+        return value.frame  # a Series kept in a name: the frame of its keys and values
+    return value
 
 
 def _executions(tree: ast.AST) -> list[set[str]]:
