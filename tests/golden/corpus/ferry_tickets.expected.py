@@ -59,6 +59,22 @@ def pandas_dtypes_text(probe):
     return "\n".join([*lines, footer])
 
 
+def pandas_total(frame, how="sum"):
+    """s.sum() / s.mean() of a column whose type was not known when the script was converted,
+    from a frame of one row: the column's values as a list, then Polars' own total. A float
+    column is added as pandas adds it, with numpy's pairwise sum, missing values counted 0
+    (Polars adds in another order, and the last digit could differ: 11532.650000000001 for
+    11532.65), its mean that sum over the count of values (NaN when there is none); any other
+    column keeps Polars' total, as a numpy value as pandas gives it."""
+    values = frame.to_series(0)[0]
+    if not values.dtype.is_float() or how == "mean" and values.dtype != pl.Float64:
+        return frame.to_series(1).to_numpy()[0]
+    total = values.fill_null(0.0).to_numpy().sum()
+    if how == "sum":
+        return total
+    return total / values.count() if values.count() else total * float("nan")
+
+
 def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None, floats=True):
     """Each group's sum of floats (mean=True: mean) as pandas computes it, from the group's
     values as a list (pl.col(...) in an agg). pandas adds a group with a compensated (Kahan)
@@ -408,5 +424,11 @@ weekend = tickets.filter(pl.col("weekday") >= 5).collect().lazy()
 )
 print(
     weekend.select(pl.len()).collect().item(),
-    tickets.select(pl.col("revenue").sum()).collect().to_series().to_numpy()[0],
+    pandas_total(
+        tickets.select(
+            pl.col("revenue").implode().alias("values"),
+            pl.col("revenue").sum().alias("total"),
+        )
+        .collect(),
+    ),
 )

@@ -48,6 +48,22 @@ def pandas_text_array(values):
     return f"<ArrowStringArray>\n{body}\nLength: {len(items)}, dtype: str"
 
 
+def pandas_total(frame, how="sum"):
+    """s.sum() / s.mean() of a column whose type was not known when the script was converted,
+    from a frame of one row: the column's values as a list, then Polars' own total. A float
+    column is added as pandas adds it, with numpy's pairwise sum, missing values counted 0
+    (Polars adds in another order, and the last digit could differ: 11532.650000000001 for
+    11532.65), its mean that sum over the count of values (NaN when there is none); any other
+    column keeps Polars' total, as a numpy value as pandas gives it."""
+    values = frame.to_series(0)[0]
+    if not values.dtype.is_float() or how == "mean" and values.dtype != pl.Float64:
+        return frame.to_series(1).to_numpy()[0]
+    total = values.fill_null(0.0).to_numpy().sum()
+    if how == "sum":
+        return total
+    return total / values.count() if values.count() else total * float("nan")
+
+
 def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None, floats=True):
     """Each group's sum of floats (mean=True: mean) as pandas computes it, from the group's
     values as a list (pl.col(...) in an agg). pandas adds a group with a compensated (Kahan)
@@ -281,4 +297,12 @@ totals = boat_totals(landings).collect().lazy()
     )
     .sink_csv("boat_totals.csv")
 )
-print(totals.select(pl.col("catch_kg").sum()).collect().to_series().to_numpy()[0])
+print(
+    pandas_total(
+        totals.select(
+            pl.col("catch_kg").implode().alias("values"),
+            pl.col("catch_kg").sum().alias("total"),
+        )
+        .collect(),
+    ),
+)

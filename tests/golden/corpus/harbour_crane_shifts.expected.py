@@ -13,6 +13,22 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_total(frame, how="sum"):
+    """s.sum() / s.mean() of a column whose type was not known when the script was converted,
+    from a frame of one row: the column's values as a list, then Polars' own total. A float
+    column is added as pandas adds it, with numpy's pairwise sum, missing values counted 0
+    (Polars adds in another order, and the last digit could differ: 11532.650000000001 for
+    11532.65), its mean that sum over the count of values (NaN when there is none); any other
+    column keeps Polars' total, as a numpy value as pandas gives it."""
+    values = frame.to_series(0)[0]
+    if not values.dtype.is_float() or how == "mean" and values.dtype != pl.Float64:
+        return frame.to_series(1).to_numpy()[0]
+    total = values.fill_null(0.0).to_numpy().sum()
+    if how == "sum":
+        return total
+    return total / values.count() if values.count() else total * float("nan")
+
+
 # Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
 # writes 0.00005 and 1.5e-7; NaN as an empty field. Only values below 0.0001 (other than 0)
 # need the replacements, and only they are given them.
@@ -116,5 +132,11 @@ night = (
 print(
     night.select(pl.len()).collect().item(),
     night.select(pl.col("pile_row").max()).collect().to_series().to_pandas().iloc[0],
-    night.select(pl.col("stopped_min").sum()).collect().to_series().to_numpy()[0],
+    pandas_total(
+        night.select(
+            pl.col("stopped_min").implode().alias("values"),
+            pl.col("stopped_min").sum().alias("total"),
+        )
+        .collect(),
+    ),
 )

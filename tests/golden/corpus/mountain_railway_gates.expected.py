@@ -480,7 +480,7 @@ print(
         ),
     ),
 )
-checked = checked.filter(pl.col("_merge") == "both").drop("_merge")
+checked = checked.filter(pl.col("_merge") == "both").drop("_merge").collect().lazy()
 
 # %% the train each scan boarded
 timed = checked.drop_nulls("scanned_at").pipe(pandas_sort_values, "scanned_at")

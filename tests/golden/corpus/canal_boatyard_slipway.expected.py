@@ -1,0 +1,558 @@
+"""Canal-side boatyard: yard hours by hull and repair, what each registered boat cost per foot,
+and how busy the slipway was day by day through the spring haul-out season.
+
+The register is read with the boat name as its row label (that is how the office looks boats up);
+the slipway diary is laid over every day of the season, quiet days included.
+"""
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+
+def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None, floats=True):
+    """Each group's sum of floats (mean=True: mean) as pandas computes it, from the group's
+    values as a list (pl.col(...) in an agg). pandas adds a group with a compensated (Kahan)
+    sum in row order, missing values skipped, which is what Polars' rolling sum computes over
+    a window longer than the group; Polars' own sum adds in another order and can end a unit
+    in the last digit away (212.40000000000003 for 212.4). Where the rows reach pandas
+    grouped in the order of the sorted keys and none is missing, it adds with numpy's
+    reduceat instead: the first value plus numpy's pairwise sum of the rest. That is a
+    resample (sorted_within names the keys whose rows are binned together, [] for all rows)
+    where no value of those rows is missing, or a groupby whose in_key_order says so
+    (computed on the rows before grouping). floats=False: the column's type is not known;
+    whole numbers and True/False are added as Polars adds them (exactly), into Int64."""
+    kept = pl.element().fill_nan(None).drop_nulls()
+    whole_group = 2**40  # a window longer than any group
+
+    def compensated(lists):
+        total = lists.list.eval(kept.rolling_sum(whole_group, min_samples=1).last())
+        total = total.list.first().fill_null(0.0)
+        if not mean:
+            return total
+        return (total / lists.list.eval(kept.len()).list.first()).fill_nan(None)
+
+    def add(columns):
+        lists = columns[0]
+        if lists.dtype.inner != pl.Float64:  # whole numbers, True/False: exact sums
+            total = lists.list.mean() if mean else lists.list.sum()
+            return total.cast(pl.Int64) if total.dtype.is_unsigned_integer() else total
+        if len(columns) == 1 or not len(lists):
+            return compensated(lists)
+        import numpy as np
+
+        sizes = lists.list.len().cast(pl.Int64).to_numpy()
+        clean = columns[1].to_numpy() & (sizes > 0)
+        flat = lists.explode().to_numpy()  # an empty list: one missing value
+        starts = np.concatenate(([0], np.maximum(sizes, 1).cumsum()[:-1]))
+        with np.errstate(invalid="ignore"):
+            total = np.add.reduceat(flat, starts)
+        if mean:
+            total = total / np.maximum(sizes, 1)
+        if not clean.all():
+            total = np.where(clean, total, compensated(lists).to_numpy())
+        return pl.Series(total).fill_nan(None) if mean else pl.Series(total)
+
+    kind = pl.Float64 if floats else None
+    if sorted_within is None and in_key_order is None:
+        if floats:
+            return compensated(values)
+        return values.map_batches(lambda lists: add([lists]), return_dtype=kind)
+    missing = values.list.eval(pl.element().cast(pl.Float64).fill_nan(None).is_null()).list.any()
+    if in_key_order is not None:
+        clean = in_key_order & ~missing.any()
+    else:
+        clean = ~(missing.any().over(sorted_within) if sorted_within else missing.any())
+    return pl.map_batches([values, clean], add, return_dtype=kind)
+
+
+def pandas_title(text):
+    """text.str.to_titlecase() as pandas' str.title() writes it (pyarrow's kernel, one letter
+    at a time): "Σ" is "σ" at the end of a word too, "ß" first in a word is "ẞ" (Polars: "Ss"),
+    a digraph first in a word is its upper case ("ǆemal" -> "Ǆemal", Polars: "ǅemal"), "İ"
+    inside a word is "i" (Polars: i and a combining dot), and a letter Polars writes as two or
+    three first in a word ("ﬁ" as "Fi") is kept: a letter without case set before it makes
+    Polars read it as inside a word, and is taken out after. A letter without case (CJK,
+    Hebrew, a modifier letter) ends a word for pandas, not for Polars: a mark that is no
+    letter (U+FFFF) is set after each, and taken out after. Where a batch of values holds none of
+    these letters, Polars' own title case is pandas', and only that is computed."""
+    kept, mark = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾲᾴᾶᾷῂῄῆῇῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷﬀ-ﬆﬓ-ﬗ]", "\ua66e"
+    special = r"[ΣßǄ-ǌǱ-ǳİ\u0307\uffffŉǰΐΰևẖ-ẚὐὒὔὖᾲᾴᾶᾷῂῄῆῇῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷﬀ-ﬆﬓ-ﬗ[\p{Alphabetic}&&[^\p{Lu}\p{Ll}\p{Lt}]&&[^\p{Cased}&&[\p{Nl}\x{24b6}-\x{24e9}]]]]"
+
+    def title(values):
+        if not values.str.contains(special).any():
+            return values.str.to_titlecase()
+        return (
+            values.str.replace_many({"Σ": "σ", "ß": "ẞ"})
+            .str.replace_all(r"[\p{Alphabetic}&&[^\p{Lu}\p{Ll}\p{Lt}]&&[^\p{Cased}&&[\p{Nl}\x{24b6}-\x{24e9}]]]", "$0\uffff")
+            .str.replace_all(kept, mark + "$0")
+            .str.to_titlecase()
+            .str.replace_all("\uffff", "", literal=True)
+            .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"})
+            .str.replace_all(mark + f"({kept})", "$1")
+        )
+
+    return text.map_batches(title, return_dtype=pl.String, is_elementwise=True)
+
+
+def pandas_to_datetime(text, coerce):
+    """pd.to_datetime(text) without format=, as pandas reads it: pandas guesses one
+    format from the first value (the first format below whose first pattern reads a
+    real date in it) and reads every value with it (the second pattern); a value it
+    does not fit is missing (coerce) or an error, as is a first value in none of
+    these formats. Each value is rewritten into one layout Polars reads."""
+    def read(layouts, strict):
+        return (layouts.str.replace_many(['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December', 'Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'],
+                                          ['1', '2', '3', '4', '5', '6', '7', '8', '9', '10', '11', '12', '1', '2', '3', '4', '5', '6', '7', '8', '9', '10', '11', '12'],
+                                          ascii_case_insensitive=True, leftmost=True)
+                .str.to_datetime('%Y/%m/%d %H:%M:%S%.f=', time_unit="us", strict=strict))
+
+    first = text.filter(~text.is_in(['', 'NaT', 'nat', 'NAT', 'nan', 'NaN', 'NAN', 'now', 'today'])).first()
+    if not coerce:  # pandas' texts for NaT are missing, not an error
+        text = text.replace(['', 'NaT', 'nat', 'NAT', 'nan', 'NaN', 'NAN'], None)
+    # blanks before or after the first value are part of pandas' format (' %Y-%m-%d'):
+    # every value needs a run of blanks there
+    bare, lead, trail = (~first.str.contains(r"^\s|\s$"), first.str.contains(r"^\s"),
+                         first.str.contains(r"\s$"))
+    first = first.str.strip_chars()
+
+    def blanks(pattern, front, back):
+        return pattern.replace("^(?:", "^(?:" + front, 1)[:-3] + back + ")|^"
+
+    guessed = [
+        pl.when(first.str.contains(selection)
+                & read(first.str.replace(pattern, layout), False).is_not_null())
+        .then(pl.when(bare).then(text.str.replace(pattern, layout))
+              .when(~trail).then(text.str.replace(blanks(pattern, r"\s+", ""), layout))
+              .when(~lead).then(text.str.replace(blanks(pattern, "", r"\s+"), layout))
+              .otherwise(text.str.replace(blanks(pattern, r"\s+", r"\s+"), layout)))
+        for selection, pattern, layout in [
+            # %Y-%m-%d
+            ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9])$',
+             '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^',
+             '${Y}/${m}/${d} 0:0:0='),
+            # %Y-%m-%d %H:%M
+            ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9]) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+             '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]))|^',
+             '${Y}/${m}/${d} ${H}:${M}:0='),
+            # %Y-%m-%d %H:%M:%S
+            ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9]) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+             '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]):(?P<S>6[0-1]|[0-5][0-9]|[0-9]))|^',
+             '${Y}/${m}/${d} ${H}:${M}:${S}='),
+            # %Y-%m-%d %H:%M:%S.%f
+            ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9]) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])\\.(?:[0-9]{1,6})$',
+             '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]):(?P<S>6[0-1]|[0-5][0-9]|[0-9])\\.(?P<f>[0-9]{1,9}))|^',
+             '${Y}/${m}/${d} ${H}:${M}:${S}.${f}='),
+            # %Y-%m-%dT%H:%M:%S
+            ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9])T(?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+             '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])T(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]):(?P<S>6[0-1]|[0-5][0-9]|[0-9]))|^',
+             '${Y}/${m}/${d} ${H}:${M}:${S}='),
+            # %Y-%m-%dT%H:%M:%S.%f
+            ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9])T(?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])\\.(?:[0-9]{1,6})$',
+             '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])T(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]):(?P<S>6[0-1]|[0-5][0-9]|[0-9])\\.(?P<f>[0-9]{1,9}))|^',
+             '${Y}/${m}/${d} ${H}:${M}:${S}.${f}='),
+            # %Y/%m/%d
+            ('^(?:[1-9][0-9]{3})/(?:1[0-2]|0[1-9]|[1-9])/(?:3[01]|[12][0-9]|0[1-9]|[1-9])$',
+             '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))/(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^',
+             '${Y}/${m}/${d} 0:0:0='),
+            # %Y%m%d
+            ('^(?:[1-9][0-9]{3})(?:1[0-2]|0[1-9])(?:3[01]|[12][0-9]|0[1-9])$',
+             '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))(?P<m>1[0-2]|0[1-9]|[1-9])(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^',
+             '${Y}/${m}/${d} 0:0:0='),
+            # %m/%d/%Y
+            ('^(?:1[0-2]|0[1-9]|[1-9])/(?:3[01]|[12][0-9]|0[1-9]|[1-9])/(?:[1-9][0-9]{3})$',
+             '(?i)^(?:(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])/(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+             '${Y}/${m}/${d} 0:0:0='),
+            # %d/%m/%Y
+            ('^(?:3[01]|[12][0-9]|0[1-9]|[1-9])/(?:1[0-2]|0[1-9]|[1-9])/(?:[1-9][0-9]{3})$',
+             '(?i)^(?:(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])/(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+             '${Y}/${m}/${d} 0:0:0='),
+            # %m/%d/%Y %H:%M
+            ('^(?:1[0-2]|0[1-9]|[1-9])/(?:3[01]|[12][0-9]|0[1-9]|[1-9])/(?:[1-9][0-9]{3}) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+             '(?i)^(?:(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])/(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]))|^',
+             '${Y}/${m}/${d} ${H}:${M}:0='),
+            # %d/%m/%Y %H:%M
+            ('^(?:3[01]|[12][0-9]|0[1-9]|[1-9])/(?:1[0-2]|0[1-9]|[1-9])/(?:[1-9][0-9]{3}) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+             '(?i)^(?:(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])/(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]))|^',
+             '${Y}/${m}/${d} ${H}:${M}:0='),
+            # %m/%d/%Y %H:%M:%S
+            ('^(?:1[0-2]|0[1-9]|[1-9])/(?:3[01]|[12][0-9]|0[1-9]|[1-9])/(?:[1-9][0-9]{3}) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+             '(?i)^(?:(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])/(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]):(?P<S>6[0-1]|[0-5][0-9]|[0-9]))|^',
+             '${Y}/${m}/${d} ${H}:${M}:${S}='),
+            # %d/%m/%Y %H:%M:%S
+            ('^(?:3[01]|[12][0-9]|0[1-9]|[1-9])/(?:1[0-2]|0[1-9]|[1-9])/(?:[1-9][0-9]{3}) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+             '(?i)^(?:(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])/(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]):(?P<S>6[0-1]|[0-5][0-9]|[0-9]))|^',
+             '${Y}/${m}/${d} ${H}:${M}:${S}='),
+            # %m.%d.%Y
+            ('^(?:1[0-2]|0[1-9]|[1-9])\\.(?:3[01]|[12][0-9]|0[1-9]|[1-9])\\.(?:[1-9][0-9]{3})$',
+             '(?i)^(?:(?P<m>1[0-2]|0[1-9]|[1-9])\\.(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\.(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+             '${Y}/${m}/${d} 0:0:0='),
+            # %d.%m.%Y
+            ('^(?:3[01]|[12][0-9]|0[1-9]|[1-9])\\.(?:1[0-2]|0[1-9]|[1-9])\\.(?:[1-9][0-9]{3})$',
+             '(?i)^(?:(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\.(?P<m>1[0-2]|0[1-9]|[1-9])\\.(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+             '${Y}/${m}/${d} 0:0:0='),
+            # %B %d, %Y
+            ('^(?:September|February|November|December|January|October|August|March|April|June|July|May) (?:3[01]|[12][0-9]|0[1-9]|[1-9]), (?:[1-9][0-9]{3})$',
+             '(?i)^(?:(?P<B>september|february|november|december|january|october|august|march|april|june|july|may)\\s+(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]),\\s+(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+             '${Y}/${B}/${d} 0:0:0='),
+            # %b %d, %Y
+            ('^(?:Jan|Feb|Mar|Apr|May|Jun|Jul|Aug|Sep|Oct|Nov|Dec) (?:3[01]|[12][0-9]|0[1-9]|[1-9]), (?:[1-9][0-9]{3})$',
+             '(?i)^(?:(?P<b>jan|feb|mar|apr|may|jun|jul|aug|sep|oct|nov|dec)\\s+(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]),\\s+(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+             '${Y}/${b}/${d} 0:0:0='),
+            # %d %B %Y
+            ('^(?:3[01]|[12][0-9]|0[1-9]|[1-9]) (?:September|February|November|December|January|October|August|March|April|June|July|May) (?:[1-9][0-9]{3})$',
+             '(?i)^(?:(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?P<B>september|february|november|december|january|october|august|march|april|june|july|may)\\s+(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+             '${Y}/${B}/${d} 0:0:0='),
+            # %d %b %Y
+            ('^(?:3[01]|[12][0-9]|0[1-9]|[1-9]) (?:Jan|Feb|Mar|Apr|May|Jun|Jul|Aug|Sep|Oct|Nov|Dec) (?:[1-9][0-9]{3})$',
+             '(?i)^(?:(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?P<b>jan|feb|mar|apr|may|jun|jul|aug|sep|oct|nov|dec)\\s+(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+             '${Y}/${b}/${d} 0:0:0='),
+        ]
+    ]
+    return read(pl.coalesce(guessed if coerce else [*guessed, text]), not coerce)
+
+
+# The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
+# off: Polars' strip_chars() leaves the separators \x1c-\x1f.
+PANDAS_WHITESPACE = (
+    "\t\n\x0b\x0c\r\x1c\x1d\x1e\x1f \x85\xa0\u1680"
+    "\u2000\u2001\u2002\u2003\u2004\u2005\u2006\u2007"
+    "\u2008\u2009\u200a\u2028\u2029\u202f\u205f\u3000"
+)
+
+# Datetime columns with a time zone as pandas' to_csv writes them: the time always, then the
+# offset (+01:00); no fraction of a second when none has one, milliseconds when they are enough.
+PANDAS_CSV_ZONED_DATETIMES = (
+    pl.when((pl.selectors.datetime(time_zone="*").dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%:z"))
+    .when((pl.selectors.datetime(time_zone="*").dt.microsecond() % 1000 == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.3f%:z"))
+    .otherwise(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.6f%:z"))
+)
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one, milliseconds when they are enough.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .when((pl.selectors.datetime().dt.microsecond() % 1000 == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.3f"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+# Duration columns as pandas' to_csv writes them: "2 days" when every value is a whole number
+# of days, else "-1 days +23:00:00", with microseconds when one value has them.
+PANDAS_CSV_DURATIONS = (
+    pl.when((pl.selectors.duration().dt.total_microseconds() % 86_400_000_000 == 0).all())
+    .then(
+        (pl.selectors.duration().dt.total_microseconds() // 86_400_000_000).cast(pl.String)
+        + " days"
+    )
+    .otherwise(
+        (pl.selectors.duration().dt.total_microseconds() // 86_400_000_000).cast(pl.String)
+        + pl.when(pl.selectors.duration().dt.total_microseconds() < 0)
+        .then(pl.lit(" days +"))
+        .otherwise(pl.lit(" days "))
+        + (pl.selectors.duration().dt.total_microseconds() % 86_400_000_000 // 3_600_000_000)
+        .cast(pl.String).str.zfill(2)
+        + ":"
+        + (pl.selectors.duration().dt.total_microseconds() % 3_600_000_000 // 60_000_000)
+        .cast(pl.String).str.zfill(2)
+        + ":"
+        + (pl.selectors.duration().dt.total_microseconds() % 60_000_000 // 1_000_000)
+        .cast(pl.String).str.zfill(2)
+        + pl.when((pl.selectors.duration().dt.total_microseconds() % 1_000_000 == 0).all())
+        .then(pl.lit(""))
+        .otherwise(
+            "." + (pl.selectors.duration().dt.total_microseconds() % 1_000_000)
+            .cast(pl.String).str.zfill(6)
+        )
+    )
+)
+
+
+# Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
+# writes 0.00005 and 1.5e-7; NaN as an empty field. Only values below 0.0001 (other than 0)
+# need the replacements, and only they are given them.
+def pandas_csv_floats(values):
+    text = values.fill_nan(None).cast(pl.String)
+    small = (values.abs() < 1e-4) & (values != 0)
+    if not small.any():
+        return text
+    repr_text = (
+        text.filter(small)
+        .str.replace(r"e-(\d)$", "e-0${1}")
+        .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
+        .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    )
+    return text.scatter(small.arg_true(), repr_text)
+
+
+PANDAS_CSV_FLOATS = pl.selectors.float().map_batches(
+    pandas_csv_floats, return_dtype=pl.String, is_elementwise=True,
+)
+
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
+
+def tidy(names):
+    # the cards spell a boat any old way
+    return pandas_title(names.str.strip_chars(PANDAS_WHITESPACE))
+
+
+# %% the register, looked up by name
+boats = (
+    pl.scan_csv(
+        "data/boats.csv",
+        null_values=PANDAS_NA_VALUES,
+        infer_schema_length=None,
+    )
+    .select("boat", pl.exclude("boat"))
+    .collect()
+    .lazy()
+)
+print(boats.select(pl.col("boat")).collect())
+# TODO(porter): frame.sort_index: row labels that are original row numbers after a filter or sort,
+#   or keys that may repeat: keep them in a column (with_row_index) and sort by it; the index is not
+#   data in Polars: sort by the column that holds the labels
+boats = boats.collect().to_pandas().set_index("boat").sort_index()
+print(boats.head())
+print("Kingfisher is", boats.at["Kingfisher", "length_ft"], "ft")
+kf = boats.loc["Kingfisher"]
+print(kf["kind"], kf["mooring"])
+
+# %% job cards
+jobs = pl.scan_csv(
+    "data/repairs.csv",
+    null_values=PANDAS_NA_VALUES + [],
+    infer_schema_length=None,
+)
+print((jobs.select(pl.len()).collect().item(), len(jobs.collect_schema())))
+jobs = jobs.unique(keep="first", maintain_order=True)
+jobs = jobs.with_columns(boat=tidy(pl.col("boat")))
+jobs = jobs.drop_nulls("boat")
+jobs = jobs.with_columns(
+    hull=pl.col("hull")
+    .str.strip_chars(PANDAS_WHITESPACE)
+    .str.replace_many({"İ": "i", "Σ": "σ"})
+    .str.to_lowercase(),
+)
+jobs = jobs.with_columns(hull=pl.col("hull").fill_null(pl.lit("unknown")))
+jobs = jobs.with_columns(hours=pl.col("hours").fill_null(0))
+jobs = jobs.with_columns(parts_gbp=pl.col("parts_gbp").fill_null(0))
+jobs = jobs.with_columns(labour_gbp=pl.col("hours") * 38.5)
+jobs = (
+    jobs
+    .with_columns(bill=pl.col("labour_gbp") + pl.col("parts_gbp"))
+    .collect()
+    .lazy()
+)
+
+# %% hours by hull and repair: one row per hull, one column per repair
+hrs = (
+    jobs
+    .drop_nulls(["hull", "repair"])
+    .group_by(["hull", "repair"])
+    .agg(pl.col("hours"))
+    .with_columns(pandas_group_sums(pl.col("hours"), floats=False))
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
+    .sort(["hull", "repair"])
+    .collect()
+    .lazy()
+)
+print(hrs.head(8).collect())
+# TODO(porter): series.unstack: a key of type unknown: Polars names the new columns differently from
+#   pandas' labels; pivot(on=key, index=other keys) on the collected groups, columns sorted first
+grid = hrs.collect().to_pandas().set_index(["hull", "repair"])["hours"].unstack(
+    fill_value=0,
+)
+grid["all_repairs"] = grid.sum(axis=1)
+grid = grid.sort_values("all_repairs", ascending=False)
+grid = grid.reset_index()
+grid = pl.from_pandas(grid).lazy()
+(
+    grid
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_DURATIONS,
+        PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
+    )
+    .sink_csv("data/hours_by_hull.csv")
+)
+print(grid.collect())
+
+# %% each registered boat's bill, per foot of hull
+per_boat = (
+    jobs
+    .with_columns(_porter_rows_in_key_order=pl.col("boat").is_sorted())
+    .drop_nulls("boat")
+    .group_by("boat")
+    .agg(
+        pl.col("job").count().cast(pl.Int64).alias("jobs"),
+        pl.col("hours"),
+        pl.col("bill"),
+        pl.col("_porter_rows_in_key_order").first(),
+    )
+    .with_columns(
+        pandas_group_sums(
+            pl.col("hours"),
+            floats=False,
+            in_key_order=pl.col("_porter_rows_in_key_order"),
+        ),
+        pandas_group_sums(
+            pl.col("bill"),
+            floats=False,
+            in_key_order=pl.col("_porter_rows_in_key_order"),
+        ),
+    )
+    .drop("_porter_rows_in_key_order")
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
+    .sort("boat")
+)
+# TODO(porter): frame.merge: the right side is not a frame porter tracks: make it a LazyFrame
+#   (pl.from_pandas(...).lazy()) where it is built
+per_boat = per_boat.collect().to_pandas().merge(
+    boats.reset_index(),
+    on="boat",
+    how="inner",
+)
+per_boat = pl.from_pandas(per_boat).lazy()
+per_boat = per_boat.with_columns(
+    per_ft=(pl.col("bill") / pl.col("length_ft")).fill_nan(None).round(2),
+)
+# TODO(porter): frame.sort_index: row labels that are original row numbers after a filter or sort,
+#   or keys that may repeat: keep them in a column (with_row_index) and sort by it; the index is not
+#   data in Polars: sort by the column that holds the labels
+per_boat = per_boat.collect().to_pandas().set_index("boat").sort_index()
+per_boat = per_boat[["kind", "jobs", "hours", "bill", "per_ft"]]
+per_boat.to_csv("data/bill_per_boat.csv")
+print(per_boat.loc["Otter"])
+
+# %% the slipway through the season
+slip = (
+    pl.scan_csv(
+        "data/slipway.csv",
+        null_values=PANDAS_NA_VALUES,
+        infer_schema_length=None,
+    )
+    .with_columns(pandas_to_datetime(pl.col("haul_out"), coerce=False))
+)
+slip = slip.with_columns(
+    slip=pandas_title(pl.col("slip").str.strip_chars(PANDAS_WHITESPACE)),
+)
+slip = slip.filter(pl.col("slip").ne_missing(pl.lit("Dock")))
+slip = (
+    slip
+    .with_columns(month=pl.col("haul_out").dt.month().cast(pl.Int32))
+    .collect()
+    .pipe(
+        lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("month",) if t[c].has_nulls()]),
+    )
+    .lazy()
+)
+
+# TODO(porter): frame.pivot_table: margins, dropna=False or sort=False; group_by the keys, then
+#   DataFrame.pivot(on, index, values) with the columns sorted
+fees = slip.collect().to_pandas().pivot_table(
+    index="slip",
+    columns="month",
+    values="fee_gbp",
+    aggfunc="sum",
+    fill_value=0,
+    margins=True,
+)
+print(fees)
+fees = fees.rename_axis(columns=None).reset_index()
+fees = pl.from_pandas(fees).lazy()
+(
+    fees
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_DURATIONS,
+        PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
+    )
+    .sink_csv("data/slip_fees.csv")
+)
+
+daily = (
+    slip
+    .drop_nulls("haul_out")
+    .group_by("haul_out")
+    .agg(pl.col("booking").count().cast(pl.Int64))
+    .sort("haul_out")
+)
+season = pl.datetime_range(
+    pl.datetime(2026, 3, 1),
+    pl.datetime(2026, 4, 30),
+    "1d",
+    eager=True,
+)
+daily = (
+    pl.LazyFrame({"index": season})
+    .join(
+        daily.select(
+            pl.col("haul_out").alias("index"),
+            pl.col("booking"),
+            pl.lit(True).alias("_porter_found"),
+        ),
+        on="index",
+        how="left",
+        maintain_order="left",
+    )
+    .select(
+        "index",
+        pl.when(pl.col("_porter_found"))
+        .then(pl.col("booking"))
+        .otherwise(0)
+        .alias("booking"),
+    )
+)
+daily = (
+    daily
+    .rename({"index": "day"})
+    .select(pl.col("day"), pl.col("booking").alias("hauled"))
+)
+daily = daily.with_columns(weekday=pl.col("day").dt.to_string("%A")).collect().lazy()
+quiet = daily.filter(pl.col("hauled") == 0)
+print(quiet.select(pl.len()).collect().item(), "quiet days")
+per_weekday = (
+    daily
+    .drop_nulls("weekday")
+    .group_by("weekday")
+    .agg(pl.col("hauled").mean())
+    .sort("weekday")
+    .select(pl.col("weekday"), pl.col("hauled").round(3).alias("hauled"))
+)
+(
+    per_weekday
+    .with_columns(
+        PANDAS_CSV_FLOATS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
+    )
+    .sink_csv("data/slipway_by_weekday.csv")
+)
