@@ -200,6 +200,9 @@ def _verify_options(parser: argparse.ArgumentParser, outputs: bool = True) -> No
                        help="relative tolerance for floats (default 1e-9)")
     group.add_argument("--ignore-order", action="store_true",
                        help="compare tables as multisets of rows")
+    group.add_argument("--reference-python", metavar="PATH", default=None,
+                       help="run the original under this Python (one with the older pandas the "
+                            "script was written for); it must have pandas")
     group.add_argument("--timing-runs", type=_count, default=1, metavar="N",
                        help="run each side N more times without capturing its frames and report "
                             "the median time and peak memory and their spread (default 1)")
@@ -418,7 +421,8 @@ def review_command(args: argparse.Namespace) -> int:
         low=args.low, verify=args.verify,
         verify_options=VerifyOptions(timeout=args.timeout, memory_mib=args.memory_limit,
                                      rtol=args.rtol, ignore_order=args.ignore_order,
-                                     timing_runs=args.timing_runs),
+                                     timing_runs=args.timing_runs,
+                                     reference_python=args.reference_python),
         jobs=args.jobs, excludes=tuple(args.exclude), max_size=args.max_size, title=args.title,
         progress=not args.quiet, trials=args.trials, seed=args.seed,
         trials_out=args.trials_out, sample_rows=args.sample_rows))
@@ -451,7 +455,8 @@ def _run_verify(args: argparse.Namespace, original: str, converted: str | None, 
         raise ConversionError("no such folder (--trials-out)", trials_out)
     options = VerifyOptions(timeout=args.timeout, memory_mib=args.memory_limit, rtol=args.rtol,
                             ignore_order=args.ignore_order, keep=args.keep,
-                            timing_runs=args.timing_runs)
+                            timing_runs=args.timing_runs,
+                            reference_python=getattr(args, "reference_python", None))
     result = verify(original, converted, args.data, options)
     print(render(result, original, label), file=stream)
     if args.keep:

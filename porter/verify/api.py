@@ -10,6 +10,7 @@ import ast
 from dataclasses import dataclass, replace
 from pathlib import Path
 import shutil
+import sys
 import tempfile
 
 from porter.model import ConversionError
@@ -29,6 +30,8 @@ class VerifyOptions:
     # runs of each side after the verifying one, with no capture, for the median time and
     # peak memory and their spread; the command line's --timing-runs defaults to 1
     timing_runs: int = 0
+    # another Python to run the original under (one with the older pandas it was written for)
+    reference_python: str | None = None
 
 
 def verify(original: str | Path, converted_text: str | None, data_dir: str | Path,
@@ -44,6 +47,9 @@ def verify(original: str | Path, converted_text: str | None, data_dir: str | Pat
     if not data.is_dir():
         raise ConversionError("no such folder (--data is the folder the script runs in)", str(data))
     original_text = original.read_text(encoding="utf-8")
+    pythons = {"original": options.reference_python, "converted": None}
+    environments = {"original": reference_environment(options.reference_python),
+                    "converted": _this_environment()} if options.reference_python else {}
     if converted_text is None:
         from porter.api import convert_source
         from porter.model import Options
@@ -57,11 +63,16 @@ def verify(original: str | Path, converted_text: str | None, data_dir: str | Pat
         for side, text in texts.items():
             (root / side).mkdir()
             sides[side] = run_side(text, script_rel, data, root / side,
-                                   timeout=options.timeout, memory_mib=options.memory_mib)
+                                   timeout=options.timeout, memory_mib=options.memory_mib,
+                                   python=pythons[side])
         result = _judge(sides["original"], sides["converted"], options,
                         row_names=_row_loop_names(original_text))
         if options.timing_runs > 0 and result.verdict != "error":
             result = _timed(result, texts, script_rel, data, root, options)
+        if environments:
+            result = replace(result,
+                             original=replace(result.original, environment=environments["original"]),
+                             converted=replace(result.converted, environment=environments["converted"]))
         if not options.keep:  # the working copies are removed below: name none
             result = replace(result, original=replace(result.original, workdir=None),
                              converted=replace(result.converted, workdir=None))
@@ -87,7 +98,8 @@ def _timed(result: VerifyResult, texts: dict[str, str], script_rel: str, data: P
             place.mkdir()
             try:
                 run = run_side(text, script_rel, data, place, timeout=options.timeout,
-                               memory_mib=options.memory_mib, capture=False).run
+                               memory_mib=options.memory_mib, capture=False,
+                               python=options.reference_python if side == "original" else None).run
             finally:
                 shutil.rmtree(place, ignore_errors=True)
             if run.failure or run.measured != "script":
@@ -102,6 +114,36 @@ def _timed(result: VerifyResult, texts: dict[str, str], script_rel: str, data: P
              for side, reason in stopped.items()]
     return replace(result, original=timed["original"], converted=timed["converted"],
                    notes=result.notes + tuple(notes))
+
+
+def reference_environment(python: str) -> str:
+    """The Python at `python` and the pandas it has ("Python 3.11.7, pandas 2.2.3 (path)");
+    a ConversionError when it cannot be run or has no pandas."""
+    import subprocess
+    probe = "import sys, pandas; print(sys.version.split()[0], pandas.__version__)"
+    try:
+        done = subprocess.run([python, "-c", probe], capture_output=True, text=True, timeout=120)
+    except (OSError, subprocess.TimeoutExpired) as exc:
+        raise ConversionError(f"cannot run this Python ({type(exc).__name__}: {exc})", python) from None
+    if done.returncode != 0:
+        last = (done.stderr.strip().splitlines() or ["no output"])[-1]
+        raise ConversionError(f"this Python cannot import pandas ({last}); install pandas there "
+                              "to verify against it", python)
+    version, pandas_version = done.stdout.split()[-2:]
+    return f"Python {version}, pandas {pandas_version} ({python})"
+
+
+def _this_environment() -> str:
+    """The Python porter runs under and its pandas and Polars, as reference_environment says it."""
+    from importlib.metadata import PackageNotFoundError, version
+    import platform
+
+    def of(name: str) -> str:
+        try:
+            return version(name)
+        except PackageNotFoundError:
+            return "not installed"
+    return f"Python {platform.python_version()}, pandas {of('pandas')}, Polars {of('polars')} ({sys.executable})"
 
 
 def _script_place(original: Path, data: Path) -> str:

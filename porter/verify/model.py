@@ -69,6 +69,9 @@ class SideRun:
     measured: Literal["script", "process"] = "script"
     wall_runs: tuple[float, ...] = ()
     peak_runs: tuple[float, ...] = ()
+    # the interpreter and libraries this side ran under, when the original ran under another
+    # Python (verify --reference-python): "Python 3.11.7, pandas 2.2.3 (/venvs/old/bin/python)"
+    environment: str | None = None
 
     @property
     def runs(self) -> int:
@@ -97,6 +100,8 @@ class SideRun:
         data["stderr_tail"] = "\n".join(self.stderr.splitlines()[-20:])
         if self.failure:
             data["failure"] = self.failure
+        if self.environment:
+            data["environment"] = self.environment
         if self.workdir:
             data["workdir"] = self.workdir
         return data

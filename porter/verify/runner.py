@@ -52,8 +52,12 @@ def _limits(memory_mib: int | None):  # type: ignore[no-untyped-def]
 
 
 def run_side(script_text: str, script_rel: str, data_dir: Path, side_dir: Path, *,
-             timeout: float, memory_mib: int | None, capture: bool = True) -> SideOutputs:
+             timeout: float, memory_mib: int | None, capture: bool = True,
+             python: str | None = None) -> SideOutputs:
     """Copy `data_dir` into `side_dir/work`, put the script at `script_rel` in it, run it there.
+
+    `python`: another interpreter to run it under (verify --reference-python); the child is
+    then run from its file, which needs nothing but the standard library.
 
     `capture=False` is a timing run: the child keeps no frames and the files the script wrote
     are not looked at; only how it ended and what it cost are reported.
@@ -71,7 +75,10 @@ def run_side(script_text: str, script_rel: str, data_dir: Path, side_dir: Path, 
     dump.mkdir()
     before = _fingerprints(work) if capture else {}
 
-    command = [sys.executable, "-m", "porter.verify.child", str(script), str(dump)]
+    if python is None:
+        command = [sys.executable, "-m", "porter.verify.child", str(script), str(dump)]
+    else:
+        command = [python, str(Path(__file__).with_name("child.py")), str(script), str(dump)]
     if not capture:
         command.append("--no-capture")
     exit_code, stdout, stderr, timed_out, process_wall = _run_child(command, work, timeout,

@@ -36,6 +36,8 @@ def render(result: VerifyResult, original: str, converted: str) -> str:
         capture = "" if run.capture_s is None else f"{run.capture_s:.2f}s"
         lines.append(f"  {side:<10} {str(run.exit_code):>5} {run.wall_s:>8.2f}s "
                      f"{time_range(run):>13} {peak:>12} {capture:>8}")
+        if run.environment:
+            lines.append(f"    ran under {run.environment}")
         if run.failure:
             lines.append(f"    {side} {run.failure}; last lines of its stderr:")
             lines += [f"    | {line}" for line in run.stderr.splitlines()[-12:]]
