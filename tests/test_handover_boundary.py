@@ -768,7 +768,8 @@ def test_a_statement_kept_on_pandas_after_a_hand_over_is_marked():
         df.insert(1, "port", "Sandvik")
         first = df.set_index("berth").loc["A"]
         """, "first")
-    assert "TODO(porter): indexed.loc" in text
+    # (set_index makes the table labelled by berth; its row by label is frame.loc's TODO)
+    assert "TODO(porter): frame.loc" in text
 
 
 def test_series_of_a_frame_sorted_after_their_last_use_stay_expressions():

@@ -544,7 +544,9 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
     into several columns (df[["a", "b"]] = 0); a Series pandas computed row for row (a map or
     apply under a TODO) put back by position, lists of text it returns kept lists; np.nan is a
     Float64 column of missing values, as pandas' float64.
-    Caveats: a Series from another frame aligns on the index in pandas: a TODO. A function
+    A Series of another table labelled by the same one key (a groupby's result on that key) is
+    aligned on the labels as pandas aligns it: a left join on the key column.
+    Caveats: a Series from another frame aligned on other labels is a TODO. A function
     pandas maps whose `return`s give values of several kinds (number and text), lists of
     other values, tuples, dicts or sets keeps the statement and the frame on pandas (Polars
     has no column that holds them as pandas does); returns porter cannot read are taken to
@@ -562,6 +564,9 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
         return set_nullable_ints(
             with_columns(frame, [(n, *value_expr(c, frame, ctx)) for n, c in zip(names, columns)]),
             {n: c.nullable_int or NOT_NULLABLE for n, c in zip(names, columns)})
+    if isinstance(key, Opaque) and isinstance(key.const, str) and isinstance(value, Column) \
+            and value.frame.rows != frame.rows and _labelled_alike(frame, value.frame):
+        return _aligned_on_labels(frame, key.const, value, ctx)
     if isinstance(key, Opaque) and isinstance(key.const, str):
         code, dtype = value_expr(value, frame, ctx)
         result = set_nullable_ints(with_columns(frame, [(key.const, code, dtype)]),
@@ -587,6 +592,48 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
         return with_column_updates(frame, new, {}) if frame.columns is None else \
             derive(frame, new, same_rows=True, columns=None)
     raise Unsupported("assigning to several columns or to a computed key")
+
+
+ALIGNED = "_porter_aligned"
+
+
+def _labelled_alike(frame: Frame, other: Frame) -> bool:
+    """Both tables labelled by the same one key column, each label once (a groupby's results
+    on one key, in their own order): a Series of one set into the other is aligned on it."""
+    from porter.rules.selection import unique_key
+    return len(frame.index) == 1 and frame.index == other.index and frame.columns is not None \
+        and unique_key(frame) and unique_key(other)
+
+
+def _aligned_on_labels(frame: Frame, name: str, value: Column, ctx: RuleContext) -> Frame:
+    """stats["ha"] = other_table["ha"], both labelled by one key of distinct values: pandas
+    aligns the Series on the labels (each row gets the value of its own label, NaN where the
+    Series lacks it, a label only the Series has is dropped): a left join on the key column,
+    missing keys matching each other as pandas' NaN labels do. The column keeps its place when
+    it exists. An integer Series is float64 in pandas where a label went missing: made Float64
+    there once the join has run; a True/False one becomes object with NaN in pandas: a TODO."""
+    key = frame.index[0]
+    kinds = {frame.dtype(key), value.frame.dtype(key)}
+    if len(kinds) > 1 and None not in kinds:
+        raise Unsupported("labels of two types: pandas finds none of them in the other table")
+    if value.dtype == "bool" or value.null_is_false:
+        raise Unsupported("True/False values aligned on labels: pandas makes an object column "
+                          "with NaN where a label is missing")
+    if value.dtype is None:
+        ctx.lower("the Series' type is not known: True/False values become an object column in "
+                  "pandas where a label is missing (Boolean with null here)", 0.9)
+    other = value.frame.code.method("select", emit.col(key), value.code.method("alias", ALIGNED))
+    joined = replace(frame, code=frame.code.method(
+        "join", other, on=key, how="left", nulls_equal=True, maintain_order="left"))
+    result = with_columns(joined, [(name, emit.col(ALIGNED), value.dtype)])
+    code = result.code.method("drop", ALIGNED)
+    if value.dtype in ("int", None):
+        # pandas' type is known once the join has run: float64 where a label went missing
+        code = code.method("collect").method("pipe", emit.atom(
+            f"lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in {emit.render((name,))} "
+            "if t[c].dtype.is_integer() and t[c].has_nulls()])")).method("lazy")
+        result = replace(result, dtypes=tuple((c, t) for c, t in result.dtypes if c != name))
+    return replace(result, code=code)
 
 
 def typed_at_run_time(frame: Frame, values: dict[str, Value]) -> Frame | None:
