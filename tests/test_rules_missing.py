@@ -44,7 +44,7 @@ PORTS = [
                  'df.with_columns(a=pl.col("a").fill_null(0), s=pl.col("s").fill_null(pl.lit("?")))',
                  id="fillna dict ignores unknown names"),
     pytest.param('r = df[["a", "s", "b"]].fillna(df["a"].mean())',
-                 'pl.selectors.numeric().fill_null(pl.col("a").mean())', id="fillna with a reduction"),
+                 'fill_null(pandas_reduce(pl.col("a"), how="mean")', id="fillna with a reduction"),
     pytest.param('df["a"] = df["a"].fillna(df["b"])', 'pl.col("a").fill_null(pl.col("b"))',
                  id="series fillna with a column"),
     pytest.param('df["a"] = df["a"].ffill(limit=1)', 'pl.col("a").forward_fill(1)', id="ffill limit"),
