@@ -23,7 +23,7 @@ from porter.rules.ops import (
 )
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
-    mark_float_ints, nullable_mark, set_nullable_ints, with_column_updates,
+    floats_where_missing, mark_float_ints, nullable_mark, set_nullable_ints, with_column_updates,
 )
 from porter.rules.strings import LIST_STR, expanded_columns, list_repr
 from porter.translate.handover import (makes_periods, makes_python_ints, orders_categories,
@@ -629,9 +629,7 @@ def _aligned_on_labels(frame: Frame, name: str, value: Column, ctx: RuleContext)
     code = result.code.method("drop", ALIGNED)
     if value.dtype in ("int", None):
         # pandas' type is known once the join has run: float64 where a label went missing
-        code = code.method("collect").method("pipe", emit.atom(
-            f"lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in {emit.render((name,))} "
-            "if t[c].dtype.is_integer() and t[c].has_nulls()])")).method("lazy")
+        code = floats_where_missing(code, (name,), integers_only=True)
         result = replace(result, dtypes=tuple((c, t) for c, t in result.dtypes if c != name))
     return replace(result, code=code)
 
@@ -654,9 +652,7 @@ def typed_at_run_time(frame: Frame, values: dict[str, Value]) -> Frame | None:
                   and value.frame.rows == frame.rows)
     if not names:
         return None
-    code = frame.code.method("collect").method("pipe", emit.atom(
-        f"lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in {emit.render(names)} "
-        "if t[c].has_nulls()])")).method("lazy")
+    code = floats_where_missing(frame.code, names)
     # the mark has done its work: pandas' type is the column's own from here on
     float_ints = tuple(m for m in frame.float_ints if m[0] not in names)
     return replace(frame, code=code, float_ints=float_ints)
@@ -766,9 +762,7 @@ def _join_on_index(frame: Frame, other: Frame, call: PandasCall, ctx: RuleContex
     dtypes = {**dict(other.dtypes), **dict(frame.dtypes)}
     ints = [c for c in right_columns or () if other.dtype(c) == "int"] if how == "left" else []
     if ints:
-        code = code.method("collect").method("pipe", emit.atom(
-            f"lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in {emit.render(tuple(ints))} "
-            "if t[c].has_nulls()])")).method("lazy")
+        code = floats_where_missing(code, ints)
         dtypes = {c: t for c, t in dtypes.items() if c not in ints}
     return Frame(code, columns=columns, index=keys, labels_intact=False,
                  dtypes=tuple(dtypes.items()) if columns is None

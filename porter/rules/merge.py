@@ -17,7 +17,9 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate import handover
-from porter.translate.context import PandasCall, RuleContext, Unsupported, nullable_mark
+from porter.translate.context import (
+    PandasCall, RuleContext, Unsupported, floats_where_missing, nullable_mark,
+)
 from porter.translate.values import NOT_NULLABLE, Column, Frame, FrameList, Opaque, Scalar, Value
 
 HOW = {"inner": "inner", "left": "left", "right": "right", "outer": "full", "cross": "cross"}
@@ -241,10 +243,7 @@ def _float_where_missing(code: Code, ints: Sequence[str]) -> Code:
     missing, int64 where every row found its match. The joined table gives each such column the
     type pandas gives it, so what follows (fillna, astype(str), sums, to_csv, a row read as a
     Series) reads it as pandas does; porter cannot tell which, so it knows no type for them."""
-    names = emit.render(tuple(ints))
-    return code.method("collect").method("pipe", emit.atom(
-        f"lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in {names} "
-        "if t[c].has_nulls()])")).method("lazy")
+    return floats_where_missing(code, ints)
 
 
 def _nullable_marks(frames: tuple[Frame, Frame], before: tuple[_Side, _Side],

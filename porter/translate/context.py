@@ -523,6 +523,17 @@ def _float_int_result(key: str, call: PandasCall, result: Value, ctx: RuleContex
     return result
 
 
+def floats_where_missing(code: Code, names: Sequence[str], integers_only: bool = False) -> Code:
+    """The plan `code` computed, each int column of `names` made Float64 where it holds a
+    missing value: pandas' type known once the plan has run (a join that left a value missing,
+    a date part of a missing date: float64; int64 where none is). `integers_only`: a column
+    named may be of another type (left as it is)."""
+    test = "t[c].dtype.is_integer() and t[c].has_nulls()" if integers_only else "t[c].has_nulls()"
+    return code.method("collect").method("pipe", emit.atom(
+        f"lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in {emit.render(tuple(names))} "
+        f"if {test}])")).method("lazy")
+
+
 def mark_float_ints(frame: Frame, names: Sequence[str], why: str) -> Frame:
     """`frame` with the int columns `names` marked as float64 in pandas when `why`."""
     kept = tuple(m for m in frame.float_ints if m[0] not in names)
