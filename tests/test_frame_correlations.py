@@ -10,7 +10,7 @@ from pathlib import Path
 
 import pytest
 
-from support import same_text
+from support import differential, same_text
 
 
 def _hives(rows: int) -> str:
@@ -55,3 +55,27 @@ hives = pd.read_csv("hives.csv")
 out = {call}
 ''', options=Options(data_dir=str(tmp_path))).converted_text
     assert "TODO(porter): frame.corr" in text, text
+
+
+def test_correlation_of_a_frame_holding_its_row_labels_leaves_them_out():
+    # after dropna the row labels are carried (a later step reads them); pandas' corr never
+    # reads the index
+    result = differential("""
+        import pandas as pd
+        df = pd.DataFrame({"a": [1.0, None, 3.0, 4.5, 2.0], "b": [2, 1, 7, 3, 3],
+                           "c": [0.5, 0.25, None, 1.0, 8.0]})
+        df = df.dropna(subset=["a"])
+        result = df[["a", "b", "c"]].corr()
+        labels = df.index
+    """, "result")
+    assert "TODO" not in result.converted_text and "pl.corr" in result.converted_text
+
+
+def test_correlation_of_group_means_leaves_the_keys_out():
+    result = differential("""
+        import pandas as pd
+        df = pd.DataFrame({"k": ["x", "y", "x", "z", "y", "z"], "a": [1.0, 2.0, 3.0, 4.5, 2.0, 0.0],
+                           "b": [2, 1, 7, 3, 3, 9]})
+        result = df.groupby("k").mean().corr()
+    """)
+    assert "TODO" not in result.converted_text and "pl.corr" in result.converted_text

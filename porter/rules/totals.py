@@ -11,6 +11,7 @@ reads its Series.
 from __future__ import annotations
 
 from collections.abc import Callable, Sequence
+from dataclasses import replace
 
 from porter.emit import code as emit
 from porter.emit.code import Code
@@ -122,7 +123,9 @@ def frame_nunique(call: PandasCall, ctx: RuleContext) -> Value:
 @rule("frame.corr")
 def frame_corr(call: PandasCall, ctx: RuleContext) -> Value:
     """df.corr() -> pl.corr(a, b) of each pair of columns, as a table labelled by the column
-    names ("index", unnamed in pandas), one row and one column per number column.
+    names ("index", unnamed in pandas), one row and one column per number column; the columns
+    holding the frame's own index (row labels, a groupby's keys) are left out, as pandas
+    leaves out its index.
 
     Handles: Pearson's correlation over the rows where both values are present, as pandas
     pairs them; a column with fewer than two values, or none that vary, gives a missing value
@@ -137,10 +140,14 @@ def frame_corr(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.reject_unknown(call, "method", "min_periods", "numeric_only", positional=1)
     if call.const("method", 0, "pearson") != "pearson":
         raise Unsupported("a rank correlation (spearman, kendall): rank the columns first")
-    if frame.columns is None or any(frame.dtype(c) is None for c in frame.columns):
+    if frame.columns is None:
         raise Unsupported("a frame whose column types porter does not know")
-    _plain_names(frame)
-    names = list(frame.columns)
+    # the columns holding the frame's index (row labels carried after a filter, a groupby's
+    # keys) are not pandas' columns: a correlation never reads the index
+    names = [c for c in frame.columns if c not in frame.index]
+    if any(frame.dtype(c) is None for c in names):
+        raise Unsupported("a frame whose column types porter does not know")
+    _plain_names(replace(frame, index=()))
     numbers = [c for c in names if frame.dtype(c) in ("int", "float", "bool")]
     if call.const("numeric_only", None, False, kinds=(bool,)):
         names = numbers
