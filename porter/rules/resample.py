@@ -35,7 +35,9 @@ from typing import Any
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
-from porter.rules.groupby import UntypedColumns, agg_dtype, agg_expr, agg_with_sums, how_name
+from porter.rules.groupby import (
+    UntypedColumns, agg_dtype, agg_expr, agg_with_sums, how_name, lower_for_group_spread,
+)
 from porter.rules.legacy import modern_offset
 from porter.rules.ops import float32_possible
 from porter.translate import handover
@@ -617,6 +619,7 @@ def resample_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower("the non-key columns are not known: text columns would fail in Polars "
                   "(pandas joins or raises); run with --data to know them", 0.85)
         others = _others(resampled)
+        lower_for_group_spread(ctx, how, None)
         expr = agg_expr(others, how) if ddof == 1 or how not in ("std", "var") else \
             others.method(how, ddof=ddof)
         return _binned(resampled, [_Output("*", expr, how, None, others=others)], ctx,
@@ -624,6 +627,7 @@ def resample_reduce(call: PandasCall, ctx: RuleContext) -> Value:
     outputs = []
     for column in columns:
         dtype = resampled.frame.dtype(column)
+        lower_for_group_spread(ctx, how, dtype)
         expr = agg_expr(emit.col(column), how, dtype, float32=float32_possible(ctx))
         if how in ("std", "var") and ddof != 1:
             expr = emit.col(column).method(how, ddof=ddof)
@@ -653,6 +657,7 @@ def resample_agg(call: PandasCall, ctx: RuleContext) -> Value:
         if how == "size":
             expr = emit.pl("len").method("cast", emit.atom("pl.Int64"))
         else:
+            lower_for_group_spread(ctx, how, resampled.frame.dtype(column))
             expr = agg_expr(emit.col(column), how, resampled.frame.dtype(column),
                             float32=float32_possible(ctx))
         outputs.append(_Output(name, expr, how, resampled.frame.dtype(column),

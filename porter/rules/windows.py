@@ -20,7 +20,7 @@ from porter.rules import rule
 from porter.rules.elementwise import _checked, body_expression, function_value
 from porter.rules.groupby import (
     GROUP_MEAN_FUNCTION, GROUP_SUM_FUNCTION, GROUP_SUM_OVER_FUNCTION, agg_expr, group_order,
-    keys_sorted_as_pandas,
+    keys_sorted_as_pandas, lower_for_group_spread,
 )
 from porter.rules.io_options import QUANTILE_FUNCTION
 from porter.rules.ops import abs_, float32_possible, round_
@@ -324,6 +324,7 @@ def group_transform(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("a function porter cannot read: write it as an aggregation .over(keys)")
     # the group size as Int64, as pandas' int64 (Polars' UInt32 would wrap around below 0);
     # agg_expr makes a count and a sum of booleans Int64 too
+    lower_for_group_spread(ctx, how, column.dtype)
     expr = emit.pl("len").method("cast", emit.atom("pl.Int64")) if how == "size" \
         else agg_expr(column.code, how, column.dtype, float32=float32_possible(ctx))
     dtype = "int" if how in ("count", "nunique", "size") or how == "sum" and column.dtype == "bool" \
