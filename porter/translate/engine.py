@@ -9,6 +9,7 @@ import re
 import textwrap
 from dataclasses import dataclass, field, replace
 from collections.abc import Callable
+from itertools import product
 from typing import Any
 
 import libcst as cst
@@ -145,7 +146,8 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
         services.applied_functions, services.applied_kinds = {}, {}
         walker = _Walker(services, facts, emit_code=False, files=files)
         walker.block(module.body, _initial_env(facts), module.default_indent, "")
-        updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values)
+        updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values,
+                                   walker.choice_returns)
         if updated == services.functions:
             break
         services.functions = updated
@@ -166,7 +168,8 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
         services.applied_functions, services.applied_kinds = {}, {}
         walker = _Walker(services, facts, emit_code=False, files=files)
         walker.block(module.body, _initial_env(facts), module.default_indent, "")
-        updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values)
+        updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values,
+                                   walker.choice_returns)
         if services.labels_needed == labels_before and updated == services.functions:
             break
         services.functions = updated
@@ -181,6 +184,13 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     if walker.sites:
         new_module = import_edits.fix_imports(new_module, facts, module)
     return Translation(new_module, _unique(walker.sites))
+
+
+def _written_with(text: str, names: dict[str, str]) -> str:
+    """`text` with each identifier of `names` (emit.ParamText) replaced by its code."""
+    for mark, code in names.items():
+        text = re.sub(rf"\b{re.escape(mark)}\b", lambda _: code, text)
+    return text
 
 
 def _initial_env(facts: ImportFacts) -> dict[str, Value]:
@@ -214,6 +224,9 @@ class _Walker:
         self.returns: dict[str, list[Value]] = {}
         self.returned_of: dict[str, list[str | None]] = {}  # see returned_column
         self.body_values: dict[str, list[Value]] = {}  # names bound in functions' bodies
+        # what a function whose body is ported once for the texts its calls pass returns for
+        # each of them (texts_followed): ((param, text), ...) -> the values returned
+        self.choice_returns: dict[str, list[tuple[tuple[tuple[str, str], ...], list[Value]]]] = {}
         self.param_frames: dict[int, str] = {}  # rows of frame parameters: their names
         self.handed_from: dict[str, int] = {}  # see note_handed_over
         self.function: str | None = None
@@ -372,15 +385,102 @@ class _Walker:
         outer = self.function
         self.function = self.services.function_at_hand = stmt.name.value
         self.spans.append(self.services.position(stmt))
+        followed = self.texts_followed(stmt, function, local, unit, indent) \
+            if function is not None and function.param_choices else None
+        if followed is not None:
+            body = followed
+        else:
+            body = self.function_body(stmt, local, unit, indent)
+        self.spans.pop()
+        self.function = self.services.function_at_hand = outer
+        return stmt.with_changes(body=body)
+
+    def function_body(self, stmt: cst.FunctionDef, local: dict[str, Value], unit: str,
+                      indent: str) -> Any:
         saved, header_saved = len(self.sites), len(self.header_sites)
         body, _ = self.indented(stmt.body, local, unit, indent)
         if handed_over_inside(stmt, body, local, self.services):
             # a module's frame handed to pandas in the body: ported again with it left pandas
             del self.sites[saved:], self.header_sites[header_saved:]
             body, _ = self.indented(stmt.body, local, unit, indent)
-        self.spans.pop()
-        self.function = self.services.function_at_hand = outer
-        return stmt.with_changes(body=body)
+        return body
+
+    def texts_followed(self, stmt: cst.FunctionDef, function: Any, local: dict[str, Value],
+                       unit: str, indent: str) -> Any:
+        """The body of a function whose calls pass different texts for a parameter
+        (`kg_table(bookings, "baker")`, `kg_table(deliveries, "member")`: a column name),
+        ported once with the parameter standing for its texts (emit.ParamText), the way a
+        Polars user writes it (`.group_by(who)`). It is kept only when, for each text the calls
+        pass, writing that text where the parameter stands gives exactly the code porter writes
+        for a body given that text, and the body leaves no TODO and returns frames: then it
+        computes what pandas computes at every call. What each text makes the function return
+        (its columns, named by that text) is learnt for its calls (choice_returns,
+        LocalFunction.returns_by_choice). None otherwise (the parameter is then unknown text)."""
+        name = stmt.name.value
+        params = [p for p, _ in function.param_choices]
+        combos = list(product(*(texts for _, texts in function.param_choices)))
+        if not combos or len(combos) > 8:
+            return None
+        marks = {p: emit.ParamText(p) for p in params}
+        sites, header_sites = len(self.sites), len(self.header_sites)
+        returns = list(self.returns.get(name, []))
+        returned_of = list(self.returned_of.get(name, []))
+        body_values = list(self.body_values.get(name, []))
+        calls = {k: list(v) for k, v in self.services.call_sites.items()}
+
+        def restore() -> None:
+            del self.sites[sites:], self.header_sites[header_sites:]
+            self.returns[name], self.returned_of[name] = list(returns), list(returned_of)
+            self.body_values[name] = list(body_values)
+            self.services.call_sites = {k: list(v) for k, v in calls.items()}
+
+        def walk(texts: dict[str, str]) -> tuple[str, list[SiteDraft], list[SiteDraft], list[Value]] | None:
+            restore()
+            bound = {**local, **{p: Opaque(emit.atom(p), const=t, pytype="str") for p, t in texts.items()}}
+            for param in function.frame_params:
+                frame = bound.get(param)
+                if isinstance(frame, Frame):
+                    # which columns it has is not known to every walk alike (the parameter's
+                    # text is none of them); the column a text names has the type every call's
+                    # frame gives it
+                    dtypes = tuple((texts[text], dtype) for f, text, dtype in function.text_column_dtypes
+                                   if f == param and text in texts)
+                    bound[param] = replace(frame, columns=None, dtypes=(*frame.dtypes, *dtypes))
+            body = self.function_body(stmt, bound, unit, indent)
+            own_sites, own_header = self.sites[sites:], self.header_sites[header_sites:]
+            made = self.returns.get(name, [])[len(returns):]
+            if any(site.status == "todo" for site in (*own_sites, *own_header)) or not made \
+                    or not all(isinstance(v, Frame) for v in made):
+                return None
+            code = cst.Module([]).code_for_node(stmt.with_changes(body=body))
+            return code, own_sites, own_header, made
+
+        general = walk(marks)
+        if general is None:
+            restore()
+            return None
+        text, general_sites, general_header, _ = general
+        learnt: list[tuple[tuple[tuple[str, str], ...], list[Value]]] = []
+        for combo in combos:
+            texts = dict(zip(params, combo))
+            own = walk(texts)
+            if own is None or own[0] != _written_with(text, {marks[p]: emit.lit(t).text
+                                                           for p, t in texts.items()}):
+                restore()
+                return None
+            learnt.append((tuple(sorted(texts.items())), own[3]))
+        restore()
+        # the body as ported once, with the parameter named where its texts stood
+        named = {marks[p]: p for p in params}
+        self.sites.extend(replace(site, message=_written_with(site.message, named))
+                          for site in general_sites)
+        self.header_sites.extend(replace(site, message=_written_with(site.message, named))
+                                 for site in general_header)
+        self.returns[name] = [*returns, *(v for _, made in learnt for v in made)]
+        self.choice_returns[name] = learnt
+        written = cst.parse_statement(_written_with(text, named))
+        assert isinstance(written, cst.FunctionDef)
+        return written.body
 
     def if_stmt(self, stmt: cst.If, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
         test = self.header(stmt.test, env, stmt)
