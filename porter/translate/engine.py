@@ -24,6 +24,7 @@ from porter.translate import handover, imports as import_edits
 from porter.translate.functions import (
     COLUMNS, EXPRESSION_ROWS, discover_functions, function_definitions, learn_functions,
     hand_over_module_frames, handed_over_inside, marked_as_applied, module_frames_in_body,
+    module_names_of,
     ported_where_applied, removed_note,
 )
 from porter.rules.assign import FRAME_STAYS_PANDAS, INTERVAL_MAKERS
@@ -191,6 +192,41 @@ def _written_with(text: str, names: dict[str, str]) -> str:
     for mark, code in names.items():
         text = re.sub(rf"\b{re.escape(mark)}\b", lambda _: code, text)
     return text
+
+
+def _rebinds(definition: cst.FunctionDef, names: set[str]) -> bool:
+    """Whether the function's body binds one of `names` anew (an assignment, a loop, `del`,
+    `global`, a walrus) or a function, lambda or comprehension in it takes one as its own."""
+    try:
+        tree = ast.parse(textwrap.dedent(cst.Module([]).code_for_node(definition)).strip())
+    except (SyntaxError, ValueError, RecursionError):
+        return True
+    function = tree.body[0] if tree.body else None
+    if not isinstance(function, (ast.FunctionDef, ast.AsyncFunctionDef)):
+        return True
+    for node in (n for stmt in function.body for n in ast.walk(stmt)):
+        if isinstance(node, ast.Name) and node.id in names and not isinstance(node.ctx, ast.Load):
+            return True
+        if isinstance(node, (ast.Global, ast.Nonlocal)) and names & set(node.names):
+            return True
+        if isinstance(node, ast.arguments) and names & {
+                a.arg for a in (*node.posonlyargs, *node.args, *node.kwonlyargs,
+                                *((node.vararg,) if node.vararg else ()),
+                                *((node.kwarg,) if node.kwarg else ()))}:
+            return True
+        if isinstance(node, (ast.FunctionDef, ast.AsyncFunctionDef, ast.ClassDef)) and node.name in names:
+            return True
+        if isinstance(node, (ast.Import, ast.ImportFrom)) and names & {
+                (a.asname or a.name).split(".")[0] for a in node.names}:
+            return True
+        if isinstance(node, ast.ExceptHandler) and node.name in names:
+            return True
+    return False
+
+
+def _site_written_with(site: SiteDraft, names: dict[str, str]) -> SiteDraft:
+    suggestion = None if site.suggestion is None else _written_with(site.suggestion, names)
+    return replace(site, message=_written_with(site.message, names), suggestion=suggestion)
 
 
 def _initial_env(facts: ImportFacts) -> dict[str, Value]:
@@ -421,6 +457,10 @@ class _Walker:
         combos = list(product(*(texts for _, texts in function.param_choices)))
         if not combos or len(combos) > 8:
             return None
+        if module_names_of(stmt, self.services.function_defs)[0] & self.services.function_defs.keys():
+            return None  # it calls the script's functions: they would learn the stand-in text
+        if _rebinds(stmt, set(params)):
+            return None  # the name would not hold the call's text everywhere in the body
         marks = {p: emit.ParamText(p) for p in params}
         sites, header_sites = len(self.sites), len(self.header_sites)
         returns = list(self.returns.get(name, []))
@@ -472,14 +512,13 @@ class _Walker:
         restore()
         # the body as ported once, with the parameter named where its texts stood
         named = {marks[p]: p for p in params}
-        self.sites.extend(replace(site, message=_written_with(site.message, named))
-                          for site in general_sites)
-        self.header_sites.extend(replace(site, message=_written_with(site.message, named))
-                                 for site in general_header)
+        written = cst.parse_statement(_written_with(text, named))
+        if not isinstance(written, cst.FunctionDef):
+            return None
+        self.sites.extend(_site_written_with(site, named) for site in general_sites)
+        self.header_sites.extend(_site_written_with(site, named) for site in general_header)
         self.returns[name] = [*returns, *(v for _, made in learnt for v in made)]
         self.choice_returns[name] = learnt
-        written = cst.parse_statement(_written_with(text, named))
-        assert isinstance(written, cst.FunctionDef)
         return written.body
 
     def if_stmt(self, stmt: cst.If, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
