@@ -157,3 +157,32 @@ given = grams_table(returned, "member")
 ''', "taken", "given")
     assert "_porter_text_" not in text
     assert ".group_by(who)" not in text
+
+
+def test_a_body_the_last_pass_writes_otherwise_is_not_taken_for_polars():
+    # rename's key is written as text by the rule: the body is not ported for the parameter.
+    # The analysis passes compare the code they would write too, so the callers never take
+    # what it returns (pandas frames) for LazyFrames (pd.concat stays pandas)
+    text = both('''
+def keyed(frame, who):
+    out = frame[frame[who].notna()].rename(columns={who: "key"})
+    out["label"] = out["key"].str.upper() + "-" + who
+    return out
+
+a = keyed(lent, "grower")
+b = keyed(returned, "member")
+both_ = pd.concat([a, b])
+''', "a", "b", "both_")
+    assert "_porter_text_" not in text
+    assert "pl.concat([a, b]" not in text
+
+
+def test_a_merge_key_named_by_each_call():
+    text = both('''
+def joined(left, right, on):
+    return left.merge(right, on=on, how="left")
+
+c = joined(lent.rename(columns={"grower": "member"}), returned, "member")
+d = joined(returned, returned, "season")
+''', "c", "d")
+    assert "on=on" in text and "TODO(porter)" not in text

@@ -137,50 +137,57 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     # Each pass starts afresh what it learns from the walk: the label reads and what each plan
     # feeds are the last pass's (an earlier pass may have handed frames over that the
     # functions learnt since keep in Polars).
-    for _ in range(10):
-        services.call_sites = {}
-        services.labels_needed = set()
-        services.label_functions, services.pandas_functions = set(), set()
-        services.consumers, services.frame_parents = {}, {}
-        services.row_counts, services.plan_texts = {}, {}
-        services.materialized = set()
-        services.applied_functions, services.applied_kinds = {}, {}
-        walker = _Walker(services, facts, emit_code=False, files=files)
-        walker.block(module.body, _initial_env(facts), module.default_indent, "")
-        updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values,
-                                   walker.choice_returns)
-        if updated == services.functions:
-            break
-        services.functions = updated
-    # Then, with the functions known, the frames pandas must make for their row labels: a
-    # label read found in one pass can make an earlier statement pandas' in the next, back
-    # along a chain of filters and column assignments, until no new one is found (each pass
-    # finds one more statement or stops, so there are never more passes than lines).
-    # A function whose result's labels are read becomes pandas' (pandas_functions), and a
-    # frame made by pandas passed to a function keeps it from taking Polars frames: what the
-    # functions take is learnt again after each pass.
-    for _ in range(module.code.count("\n") + 1
-                   if services.labels_needed or services.label_functions else 0):
-        labels_before = set(services.labels_needed)
-        services.call_sites = {}
-        services.consumers, services.frame_parents = {}, {}
-        services.row_counts, services.plan_texts = {}, {}
-        services.materialized = set()
-        services.applied_functions, services.applied_kinds = {}, {}
-        walker = _Walker(services, facts, emit_code=False, files=files)
-        walker.block(module.body, _initial_env(facts), module.default_indent, "")
-        updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values,
-                                   walker.choice_returns)
-        if services.labels_needed == labels_before and updated == services.functions:
-            break
-        services.functions = updated
+    # A function whose body was ported once for the texts its calls pass in the analysis
+    # passes but not in the last pass (texts_followed) is learnt again without that (twice at
+    # most): its callers must not take what it returns for frames the last pass did not write.
+    for _attempt in range(2):
+        for _ in range(10):
+            services.call_sites = {}
+            services.labels_needed = set()
+            services.label_functions, services.pandas_functions = set(), set()
+            services.consumers, services.frame_parents = {}, {}
+            services.row_counts, services.plan_texts = {}, {}
+            services.materialized = set()
+            services.applied_functions, services.applied_kinds = {}, {}
+            walker = _Walker(services, facts, emit_code=False, files=files)
+            walker.block(module.body, _initial_env(facts), module.default_indent, "")
+            updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values,
+                                       walker.choice_returns)
+            if updated == services.functions:
+                break
+            services.functions = updated
+        # Then, with the functions known, the frames pandas must make for their row labels: a
+        # label read found in one pass can make an earlier statement pandas' in the next, back
+        # along a chain of filters and column assignments, until no new one is found (each pass
+        # finds one more statement or stops, so there are never more passes than lines).
+        # A function whose result's labels are read becomes pandas' (pandas_functions), and a
+        # frame made by pandas passed to a function keeps it from taking Polars frames: what the
+        # functions take is learnt again after each pass.
+        for _ in range(module.code.count("\n") + 1
+                       if services.labels_needed or services.label_functions else 0):
+            labels_before = set(services.labels_needed)
+            services.call_sites = {}
+            services.consumers, services.frame_parents = {}, {}
+            services.row_counts, services.plan_texts = {}, {}
+            services.materialized = set()
+            services.applied_functions, services.applied_kinds = {}, {}
+            walker = _Walker(services, facts, emit_code=False, files=files)
+            walker.block(module.body, _initial_env(facts), module.default_indent, "")
+            updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values,
+                                       walker.choice_returns)
+            if services.labels_needed == labels_before and updated == services.functions:
+                break
+            services.functions = updated
 
-    services.collect_at = plans_to_collect(
-        services.consumers, services.frame_parents, frozenset(services.materialized),
-        services.row_counts, lambda binding: _cheap_to_recount(binding, services))
-    services.call_sites = {}
-    walker = _Walker(services, facts, emit_code=True, files=files)
-    body, _ = walker.block(module.body, _initial_env(facts), module.default_indent, "")
+        services.collect_at = plans_to_collect(
+            services.consumers, services.frame_parents, frozenset(services.materialized),
+            services.row_counts, lambda binding: _cheap_to_recount(binding, services))
+        services.call_sites = {}
+        walker = _Walker(services, facts, emit_code=True, files=files)
+        body, _ = walker.block(module.body, _initial_env(facts), module.default_indent, "")
+        if not walker.texts_refused_late:
+            break
+        services.texts_refused |= walker.texts_refused_late
     new_module = module.with_changes(body=body)
     if walker.sites:
         new_module = import_edits.fix_imports(new_module, facts, module)
@@ -263,6 +270,7 @@ class _Walker:
         # what a function whose body is ported once for the texts its calls pass returns for
         # each of them (texts_followed): ((param, text), ...) -> the values returned
         self.choice_returns: dict[str, list[tuple[tuple[tuple[str, str], ...], list[Value]]]] = {}
+        self.texts_refused_late: set[str] = set()  # see translate_module
         self.param_frames: dict[int, str] = {}  # rows of frame parameters: their names
         self.handed_from: dict[str, int] = {}  # see note_handed_over
         self.function: str | None = None
@@ -421,8 +429,15 @@ class _Walker:
         outer = self.function
         self.function = self.services.function_at_hand = stmt.name.value
         self.spans.append(self.services.position(stmt))
-        followed = self.texts_followed(stmt, function, local, unit, indent) \
-            if function is not None and function.param_choices else None
+        followed = None
+        if function is not None and function.param_choices \
+                and stmt.name.value not in self.services.texts_refused:
+            # (the code of each walk is written, in the analysis passes too: it is compared)
+            emit_code, self.emit_code = self.emit_code, True
+            followed = self.texts_followed(stmt, function, local, unit, indent)
+            self.emit_code = emit_code
+            if followed is None and emit_code and function.returns_by_choice:
+                self.texts_refused_late.add(stmt.name.value)
         if followed is not None:
             body = followed
         else:

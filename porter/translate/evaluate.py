@@ -148,6 +148,8 @@ class Services:
     # pandas): their parameters take pandas values at every call, so their bodies are not
     # ported for Polars frames or expressions (kept over all passes: it only grows)
     pandas_called: set[str] = field(default_factory=set)
+    # functions whose body is not ported once for the texts its calls pass (engine.texts_followed)
+    texts_refused: set[str] = field(default_factory=set)
     # the module's frames each of the script's functions leaves to pandas code (functions.py)
     pandas_globals: dict[str, set[str]] = field(default_factory=dict)
     frames_kept: dict[str, set[str]] = field(default_factory=dict)  # those its body ports
