@@ -74,9 +74,22 @@ def _is_negative_number(value: object) -> bool:
     return isinstance(value, (int, float)) and not isinstance(value, bool) and value < 0
 
 
+class ParamText(str):
+    """A text parameter of the script's function, standing in its body for the texts its calls
+    pass (engine.texts_followed): the body is ported once for all of them. Its value is an
+    identifier of its own, written bare where a literal goes; the body is kept only when,
+    with each call's text written there instead, it is the code porter writes for that text,
+    and the identifier then becomes the parameter's name."""
+
+    def __new__(cls, param: str) -> "ParamText":
+        return super().__new__(cls, f"_porter_text_{param}_")
+
+
 def literal_text(value: object) -> str:
     if isinstance(value, Code):
         return value.text
+    if isinstance(value, ParamText):
+        return str.__str__(value)
     if isinstance(value, float):
         if math.isnan(value):
             return "None"  # porter keeps frames NaN-free: NaN is written as a missing value

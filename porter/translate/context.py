@@ -580,7 +580,8 @@ def value_dtype(value: Value) -> str | None:
     if isinstance(value, Column):
         return value.dtype
     if isinstance(value, Opaque) and value.is_const:
-        return PYTHON_DTYPES.get(type(value.const))
+        # (a function's text parameter standing for its calls' texts is text: emit.ParamText)
+        return PYTHON_DTYPES.get(str if isinstance(value.const, emit.ParamText) else type(value.const))
     if isinstance(value, Scalar) and value.agg is not None and value.agg.dtype in ("duration",
                                                                                  "datetime"):
         return value.agg.dtype  # a sum of durations, the min of dates (arithmetic takes them)

@@ -9,6 +9,7 @@ import re
 import textwrap
 from dataclasses import dataclass, field, replace
 from collections.abc import Callable
+from itertools import product
 from typing import Any
 
 import libcst as cst
@@ -23,6 +24,7 @@ from porter.translate import handover, imports as import_edits
 from porter.translate.functions import (
     COLUMNS, EXPRESSION_ROWS, discover_functions, function_definitions, learn_functions,
     hand_over_module_frames, handed_over_inside, marked_as_applied, module_frames_in_body,
+    module_names_of,
     ported_where_applied, removed_note,
 )
 from porter.rules.assign import FRAME_STAYS_PANDAS, INTERVAL_MAKERS
@@ -135,52 +137,103 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     # Each pass starts afresh what it learns from the walk: the label reads and what each plan
     # feeds are the last pass's (an earlier pass may have handed frames over that the
     # functions learnt since keep in Polars).
-    for _ in range(10):
-        services.call_sites = {}
-        services.labels_needed = set()
-        services.label_functions, services.pandas_functions = set(), set()
-        services.consumers, services.frame_parents = {}, {}
-        services.row_counts, services.plan_texts = {}, {}
-        services.materialized = set()
-        services.applied_functions, services.applied_kinds = {}, {}
-        walker = _Walker(services, facts, emit_code=False, files=files)
-        walker.block(module.body, _initial_env(facts), module.default_indent, "")
-        updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values)
-        if updated == services.functions:
-            break
-        services.functions = updated
-    # Then, with the functions known, the frames pandas must make for their row labels: a
-    # label read found in one pass can make an earlier statement pandas' in the next, back
-    # along a chain of filters and column assignments, until no new one is found (each pass
-    # finds one more statement or stops, so there are never more passes than lines).
-    # A function whose result's labels are read becomes pandas' (pandas_functions), and a
-    # frame made by pandas passed to a function keeps it from taking Polars frames: what the
-    # functions take is learnt again after each pass.
-    for _ in range(module.code.count("\n") + 1
-                   if services.labels_needed or services.label_functions else 0):
-        labels_before = set(services.labels_needed)
-        services.call_sites = {}
-        services.consumers, services.frame_parents = {}, {}
-        services.row_counts, services.plan_texts = {}, {}
-        services.materialized = set()
-        services.applied_functions, services.applied_kinds = {}, {}
-        walker = _Walker(services, facts, emit_code=False, files=files)
-        walker.block(module.body, _initial_env(facts), module.default_indent, "")
-        updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values)
-        if services.labels_needed == labels_before and updated == services.functions:
-            break
-        services.functions = updated
+    # A function whose body was ported once for the texts its calls pass in the analysis
+    # passes but not in the last pass (texts_followed) is learnt again without that (twice at
+    # most): its callers must not take what it returns for frames the last pass did not write.
+    for _attempt in range(2):
+        for _ in range(10):
+            services.call_sites = {}
+            services.labels_needed = set()
+            services.label_functions, services.pandas_functions = set(), set()
+            services.consumers, services.frame_parents = {}, {}
+            services.row_counts, services.plan_texts = {}, {}
+            services.materialized = set()
+            services.applied_functions, services.applied_kinds = {}, {}
+            walker = _Walker(services, facts, emit_code=False, files=files)
+            walker.block(module.body, _initial_env(facts), module.default_indent, "")
+            updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values,
+                                       walker.choice_returns)
+            if updated == services.functions:
+                break
+            services.functions = updated
+        # Then, with the functions known, the frames pandas must make for their row labels: a
+        # label read found in one pass can make an earlier statement pandas' in the next, back
+        # along a chain of filters and column assignments, until no new one is found (each pass
+        # finds one more statement or stops, so there are never more passes than lines).
+        # A function whose result's labels are read becomes pandas' (pandas_functions), and a
+        # frame made by pandas passed to a function keeps it from taking Polars frames: what the
+        # functions take is learnt again after each pass.
+        for _ in range(module.code.count("\n") + 1
+                       if services.labels_needed or services.label_functions else 0):
+            labels_before = set(services.labels_needed)
+            services.call_sites = {}
+            services.consumers, services.frame_parents = {}, {}
+            services.row_counts, services.plan_texts = {}, {}
+            services.materialized = set()
+            services.applied_functions, services.applied_kinds = {}, {}
+            walker = _Walker(services, facts, emit_code=False, files=files)
+            walker.block(module.body, _initial_env(facts), module.default_indent, "")
+            updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values,
+                                       walker.choice_returns)
+            if services.labels_needed == labels_before and updated == services.functions:
+                break
+            services.functions = updated
 
-    services.collect_at = plans_to_collect(
-        services.consumers, services.frame_parents, frozenset(services.materialized),
-        services.row_counts, lambda binding: _cheap_to_recount(binding, services))
-    services.call_sites = {}
-    walker = _Walker(services, facts, emit_code=True, files=files)
-    body, _ = walker.block(module.body, _initial_env(facts), module.default_indent, "")
+        services.collect_at = plans_to_collect(
+            services.consumers, services.frame_parents, frozenset(services.materialized),
+            services.row_counts, lambda binding: _cheap_to_recount(binding, services))
+        services.call_sites = {}
+        walker = _Walker(services, facts, emit_code=True, files=files)
+        body, _ = walker.block(module.body, _initial_env(facts), module.default_indent, "")
+        if not walker.texts_refused_late:
+            break
+        services.texts_refused |= walker.texts_refused_late
     new_module = module.with_changes(body=body)
     if walker.sites:
         new_module = import_edits.fix_imports(new_module, facts, module)
     return Translation(new_module, _unique(walker.sites))
+
+
+def _written_with(text: str, names: dict[str, str]) -> str:
+    """`text` with each identifier of `names` (emit.ParamText) replaced by its code."""
+    for mark, code in names.items():
+        text = re.sub(rf"\b{re.escape(mark)}\b", lambda _: code, text)
+    return text
+
+
+def _rebinds(definition: cst.FunctionDef, names: set[str]) -> bool:
+    """Whether the function's body binds one of `names` anew (an assignment, a loop, `del`,
+    `global`, a walrus) or a function, lambda or comprehension in it takes one as its own."""
+    try:
+        tree = ast.parse(textwrap.dedent(cst.Module([]).code_for_node(definition)).strip())
+    except (SyntaxError, ValueError, RecursionError):
+        return True
+    function = tree.body[0] if tree.body else None
+    if not isinstance(function, (ast.FunctionDef, ast.AsyncFunctionDef)):
+        return True
+    for node in (n for stmt in function.body for n in ast.walk(stmt)):
+        if isinstance(node, ast.Name) and node.id in names and not isinstance(node.ctx, ast.Load):
+            return True
+        if isinstance(node, (ast.Global, ast.Nonlocal)) and names & set(node.names):
+            return True
+        if isinstance(node, ast.arguments) and names & {
+                a.arg for a in (*node.posonlyargs, *node.args, *node.kwonlyargs,
+                                *((node.vararg,) if node.vararg else ()),
+                                *((node.kwarg,) if node.kwarg else ()))}:
+            return True
+        if isinstance(node, (ast.FunctionDef, ast.AsyncFunctionDef, ast.ClassDef)) and node.name in names:
+            return True
+        if isinstance(node, (ast.Import, ast.ImportFrom)) and names & {
+                (a.asname or a.name).split(".")[0] for a in node.names}:
+            return True
+        if isinstance(node, ast.ExceptHandler) and node.name in names:
+            return True
+    return False
+
+
+def _site_written_with(site: SiteDraft, names: dict[str, str]) -> SiteDraft:
+    suggestion = None if site.suggestion is None else _written_with(site.suggestion, names)
+    return replace(site, message=_written_with(site.message, names), suggestion=suggestion)
 
 
 def _initial_env(facts: ImportFacts) -> dict[str, Value]:
@@ -214,6 +267,10 @@ class _Walker:
         self.returns: dict[str, list[Value]] = {}
         self.returned_of: dict[str, list[str | None]] = {}  # see returned_column
         self.body_values: dict[str, list[Value]] = {}  # names bound in functions' bodies
+        # what a function whose body is ported once for the texts its calls pass returns for
+        # each of them (texts_followed): ((param, text), ...) -> the values returned
+        self.choice_returns: dict[str, list[tuple[tuple[tuple[str, str], ...], list[Value]]]] = {}
+        self.texts_refused_late: set[str] = set()  # see translate_module
         self.param_frames: dict[int, str] = {}  # rows of frame parameters: their names
         self.handed_from: dict[str, int] = {}  # see note_handed_over
         self.function: str | None = None
@@ -372,15 +429,112 @@ class _Walker:
         outer = self.function
         self.function = self.services.function_at_hand = stmt.name.value
         self.spans.append(self.services.position(stmt))
+        followed = None
+        if function is not None and function.param_choices \
+                and stmt.name.value not in self.services.texts_refused:
+            # (the code of each walk is written, in the analysis passes too: it is compared)
+            emit_code, self.emit_code = self.emit_code, True
+            followed = self.texts_followed(stmt, function, local, unit, indent)
+            self.emit_code = emit_code
+            if followed is None and emit_code and function.returns_by_choice:
+                self.texts_refused_late.add(stmt.name.value)
+        if followed is not None:
+            body = followed
+        else:
+            body = self.function_body(stmt, local, unit, indent)
+        self.spans.pop()
+        self.function = self.services.function_at_hand = outer
+        return stmt.with_changes(body=body)
+
+    def function_body(self, stmt: cst.FunctionDef, local: dict[str, Value], unit: str,
+                      indent: str) -> Any:
         saved, header_saved = len(self.sites), len(self.header_sites)
         body, _ = self.indented(stmt.body, local, unit, indent)
         if handed_over_inside(stmt, body, local, self.services):
             # a module's frame handed to pandas in the body: ported again with it left pandas
             del self.sites[saved:], self.header_sites[header_saved:]
             body, _ = self.indented(stmt.body, local, unit, indent)
-        self.spans.pop()
-        self.function = self.services.function_at_hand = outer
-        return stmt.with_changes(body=body)
+        return body
+
+    def texts_followed(self, stmt: cst.FunctionDef, function: Any, local: dict[str, Value],
+                       unit: str, indent: str) -> Any:
+        """The body of a function whose calls pass different texts for a parameter
+        (`kg_table(bookings, "baker")`, `kg_table(deliveries, "member")`: a column name),
+        ported once with the parameter standing for its texts (emit.ParamText), the way a
+        Polars user writes it (`.group_by(who)`). It is kept only when, for each text the calls
+        pass, writing that text where the parameter stands gives exactly the code porter writes
+        for a body given that text, and the body leaves no TODO and returns frames: then it
+        computes what pandas computes at every call. What each text makes the function return
+        (its columns, named by that text) is learnt for its calls (choice_returns,
+        LocalFunction.returns_by_choice). None otherwise (the parameter is then unknown text)."""
+        name = stmt.name.value
+        params = [p for p, _ in function.param_choices]
+        combos = list(product(*(texts for _, texts in function.param_choices)))
+        if not combos or len(combos) > 8:
+            return None
+        if module_names_of(stmt, self.services.function_defs)[0] & self.services.function_defs.keys():
+            return None  # it calls the script's functions: they would learn the stand-in text
+        if _rebinds(stmt, set(params)):
+            return None  # the name would not hold the call's text everywhere in the body
+        marks = {p: emit.ParamText(p) for p in params}
+        sites, header_sites = len(self.sites), len(self.header_sites)
+        returns = list(self.returns.get(name, []))
+        returned_of = list(self.returned_of.get(name, []))
+        body_values = list(self.body_values.get(name, []))
+        calls = {k: list(v) for k, v in self.services.call_sites.items()}
+
+        def restore() -> None:
+            del self.sites[sites:], self.header_sites[header_sites:]
+            self.returns[name], self.returned_of[name] = list(returns), list(returned_of)
+            self.body_values[name] = list(body_values)
+            self.services.call_sites = {k: list(v) for k, v in calls.items()}
+
+        def walk(texts: dict[str, str]) -> tuple[str, list[SiteDraft], list[SiteDraft], list[Value]] | None:
+            restore()
+            bound = {**local, **{p: Opaque(emit.atom(p), const=t, pytype="str") for p, t in texts.items()}}
+            for param in function.frame_params:
+                frame = bound.get(param)
+                if isinstance(frame, Frame):
+                    # which columns it has is not known to every walk alike (the parameter's
+                    # text is none of them); the column a text names has the type every call's
+                    # frame gives it
+                    dtypes = tuple((texts[text], dtype) for f, text, dtype in function.text_column_dtypes
+                                   if f == param and text in texts)
+                    bound[param] = replace(frame, columns=None, dtypes=(*frame.dtypes, *dtypes))
+            body = self.function_body(stmt, bound, unit, indent)
+            own_sites, own_header = self.sites[sites:], self.header_sites[header_sites:]
+            made = self.returns.get(name, [])[len(returns):]
+            if any(site.status == "todo" for site in (*own_sites, *own_header)) or not made \
+                    or not all(isinstance(v, Frame) for v in made):
+                return None
+            code = cst.Module([]).code_for_node(stmt.with_changes(body=body))
+            return code, own_sites, own_header, made
+
+        general = walk(marks)
+        if general is None:
+            restore()
+            return None
+        text, general_sites, general_header, _ = general
+        learnt: list[tuple[tuple[tuple[str, str], ...], list[Value]]] = []
+        for combo in combos:
+            texts = dict(zip(params, combo))
+            own = walk(texts)
+            if own is None or own[0] != _written_with(text, {marks[p]: emit.lit(t).text
+                                                           for p, t in texts.items()}):
+                restore()
+                return None
+            learnt.append((tuple(sorted(texts.items())), own[3]))
+        restore()
+        # the body as ported once, with the parameter named where its texts stood
+        named = {marks[p]: p for p in params}
+        written = cst.parse_statement(_written_with(text, named))
+        if not isinstance(written, cst.FunctionDef):
+            return None
+        self.sites.extend(_site_written_with(site, named) for site in general_sites)
+        self.header_sites.extend(_site_written_with(site, named) for site in general_header)
+        self.returns[name] = [*returns, *(v for _, made in learnt for v in made)]
+        self.choice_returns[name] = learnt
+        return written.body
 
     def if_stmt(self, stmt: cst.If, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
         test = self.header(stmt.test, env, stmt)

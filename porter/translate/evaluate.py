@@ -71,6 +71,12 @@ class LocalFunction:
     returns_column_of: str | None = None
     # every frame it returns holds the rows of a file read (Polars counts them from the file)
     returns_file_rows: bool = False
+    # what it returns for each set of texts its calls pass (param_choices), when its body is
+    # ported once for them all (engine.texts_followed): ((param, text), ...) -> a template
+    returns_by_choice: tuple[tuple[tuple[tuple[str, str], ...], Value], ...] = ()
+    # (frame parameter, text parameter, dtype): every call's frame holds the column that call's
+    # text names, of this one type (`kg_table(bookings, "baker")`, `kg_table(d, "member")`)
+    text_column_dtypes: tuple[tuple[str, str, str], ...] = ()
 
 
 @dataclass
@@ -142,6 +148,8 @@ class Services:
     # pandas): their parameters take pandas values at every call, so their bodies are not
     # ported for Polars frames or expressions (kept over all passes: it only grows)
     pandas_called: set[str] = field(default_factory=set)
+    # functions whose body is not ported once for the texts its calls pass (engine.texts_followed)
+    texts_refused: set[str] = field(default_factory=set)
     # the module's frames each of the script's functions leaves to pandas code (functions.py)
     pandas_globals: dict[str, set[str]] = field(default_factory=dict)
     frames_kept: dict[str, set[str]] = field(default_factory=dict)  # those its body ports
@@ -812,13 +820,21 @@ class Evaluator:
                 text = value.code.text
             parts.append(f"{arg.keyword.value}={text}" if arg.keyword else text)
         code = Code(f"{self.source(node.func)}({', '.join(parts)})")
-        if isinstance(function.returns, Frame):
+        returns = function.returns
+        if function.returns_by_choice and not handed:
+            # the body ported once for the texts its calls pass: what it returns for this
+            # call's texts (the columns they name)
+            texts = tuple(sorted((p, v.const) for p, v in bound.items()
+                                 if p in dict(function.param_choices)
+                                 and isinstance(v, Opaque) and isinstance(v.const, str)))
+            returns = dict(function.returns_by_choice).get(texts, returns)
+        if isinstance(returns, Frame):
             # each call returns rows of its own: two calls (load("a.csv"), load("b.csv")) are
             # two frames, never columns of one another
             rows = fresh_token()
             if function.returns_file_rows:
                 self.services.file_rows.add(rows)
-            return replace(function.returns, code=code, sites=tuple(sites), rows=rows)
+            return replace(returns, code=code, sites=tuple(sites), rows=rows)
         returned = function.returns
         if isinstance(returned, Column) and (function.column_params or function.returns_column_of):
             # the function returns an expression: of the columns passed, or of the frame passed

@@ -156,13 +156,16 @@ EXPRESSION_ROWS = "_porter_caller_rows_"
 
 def learn_functions(services: Services, returns: dict[str, list[Value]],
                     returned_of: dict[str, list[str | None]] | None = None,
-                    body_values: dict[str, list[Value]] | None = None) -> dict[str, LocalFunction]:
+                    body_values: dict[str, list[Value]] | None = None,
+                    choice_returns: dict[str, list[tuple[tuple[tuple[str, str], ...], list[Value]]]] | None = None,
+                    ) -> dict[str, LocalFunction]:
     """What each of the script's functions takes and returns, from this pass's calls and
     returns. `returned_of` says, for each Column a function returned, which parameter it is an
     expression of (a frame parameter's name, COLUMNS, or None); `body_values` holds what the
     body of a function with column parameters assigned to its names."""
     returned_of = returned_of or {}
     body_values = body_values or {}
+    choice_returns = choice_returns or {}
     updated = {}
     for name, function in services.functions.items():
         calls = services.call_sites.get(name, [])
@@ -183,6 +186,12 @@ def learn_functions(services: Services, returns: dict[str, list[Value]],
                 shapes = {(k.columns, tuple(sorted(k.dtypes))) for k in kinds}  # type: ignore[union-attr]
                 if len(shapes) == 1:
                     schemas.append((param, shapes.pop()))
+                else:
+                    # frames of different columns: which columns it has is not known, but a
+                    # column every call's frame holds with one type has that type
+                    common = set.intersection(*(set(dtypes) for _, dtypes in shapes))
+                    if common:
+                        schemas.append((param, (None, tuple(sorted(common)))))
             elif kinds and all(isinstance(k, Opaque) and k.is_const and isinstance(k.const, str)
                                for k in kinds) and len({k.const for k in kinds}) == 1:  # type: ignore[union-attr]
                 consts.append((param, kinds[0].const))  # type: ignore[union-attr]
@@ -190,6 +199,14 @@ def learn_functions(services: Services, returns: dict[str, list[Value]],
                                for k in kinds):
                 texts = tuple(dict.fromkeys(k.const for k in kinds))  # type: ignore[union-attr]
                 choices.append((param, texts))
+        text_dtypes = []
+        for frame_param in sorted(frame_params):
+            for text_param, _ in choices:
+                i, j = function.params.index(frame_param), function.params.index(text_param)
+                kinds = {dict(c[i].dtypes).get(c[j].const) if max(i, j) < len(c) else None  # type: ignore[union-attr]
+                         for c in calls}
+                if len(kinds) == 1 and None not in kinds:
+                    text_dtypes.append((frame_param, text_param, kinds.pop()))
         columns = _column_params(function, calls, services.function_defs.get(name))
         returned = returns.get(name, [])
         kinds_returned = returned_of.get(name, [])
@@ -231,17 +248,36 @@ def learn_functions(services: Services, returns: dict[str, list[Value]],
             template = returned[0]
         file_rows = bool(returned) and all(isinstance(r, Frame) and r.rows in services.file_rows
                                            for r in returned)
+        by_choice = []
+        if name not in services.pandas_functions and name not in services.pandas_called \
+                and {p for p, _ in choices} == {p for p, _ in function.param_choices}:
+            for texts, made in choice_returns.get(name, []):
+                shapes = {(r.columns, tuple(sorted(r.dtypes)), r.index) for r in made}  # type: ignore[union-attr]
+                if len(shapes) != 1:
+                    continue
+                columns, dtypes, index = shapes.pop()
+                own = Frame(Code(""), rows=fresh_token(), labels_intact=False, columns=columns,
+                            dtypes=dtypes, index=index)
+                own = _nullable_marks(own, made, calls, frame_params, function,
+                                      services.function_defs.get(name), services.python_module)
+                by_choice.append((texts, own))
         updated[name] = replace(function, frame_params=frozenset(frame_params), returns=template,
                                 returns_file_rows=file_rows,
                                 param_schemas=tuple(schemas), param_consts=tuple(consts),
                                 param_choices=tuple(choices), returns_column_of=returns_column_of,
-                                **column_changes)
+                                returns_by_choice=tuple(by_choice),
+                                text_column_dtypes=tuple(text_dtypes), **column_changes)
     # keep templates stable between passes so the fixpoint check can succeed
     for name, function in updated.items():
         old = services.functions[name]
         if isinstance(old.returns, Frame) and isinstance(function.returns, Frame) \
                 and _same_shape(old.returns, function.returns):
             updated[name] = replace(function, returns=old.returns)
+        before = dict(old.returns_by_choice)
+        if function.returns_by_choice and all(
+                isinstance(before.get(texts), Frame) and _same_shape(before[texts], made)  # type: ignore[arg-type]
+                for texts, made in function.returns_by_choice):
+            updated[name] = replace(updated[name], returns_by_choice=old.returns_by_choice)
     return updated
 
 
