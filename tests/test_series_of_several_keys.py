@@ -48,6 +48,15 @@ CASES = {
         result = by_lot.groupby(level=1).nth(0).reset_index()""",
     "get_level_values by position, as a list": """
         result = by_lot.index.get_level_values(1).tolist()""",
+    "missing keys kept as labels (dropna=False), sorted both ways": """
+        kept = boxes.groupby(["field", "lot"], dropna=False)["kg"].sum()
+        up = kept.sort_index().reset_index()
+        down = kept.sort_index(ascending=False).reset_index()
+        result = pd.concat([up, down], ignore_index=True)""",
+    "missing keys kept as labels: the best of each level, its labels": """
+        kept = boxes.groupby(["field", "lot"], dropna=False)["n"].sum()
+        best = kept.sort_values(kind="stable").groupby(level="lot").head(1).sort_index()
+        result = pd.DataFrame({"lot": list(best.index.get_level_values("lot")), "n": list(best)})""",
     "map of integers: float64 where a lot is not on the sheet": """
         out = boxes.dropna(subset=["lot"]).copy()
         out["rows"] = out["lot"].map(lots["rows"])

@@ -893,8 +893,10 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
             frame.dtype(k) in ("str", "int", "bool", "date", "datetime") for k in frame.index):
         # labels of several keys (a MultiIndex): pandas sorts them with numpy's lexsort on
         # the levels' codes, which is stable (rows of one label keep their order, both ways),
-        # a missing key last in its level
-        kwargs = {"nulls_last": True, "maintain_order": True}
+        # a missing key last in its level; a groupby(dropna=False) made it a value of its
+        # level (levels_with_missing), sorted last among them, so first when descending
+        kwargs = {"nulls_last": ascending or not frame.levels_with_missing,
+                  "maintain_order": True}
         if not ascending:
             kwargs["descending"] = True
         code = frame.code.method("sort", list(frame.index), **kwargs)
