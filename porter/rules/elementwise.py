@@ -543,7 +543,9 @@ def _map_by_labels(call: PandasCall, column: Column, mapper: Column, ctx: RuleCo
         raise Unsupported("looked-up values not known to be text, numbers or dates")
     values = ctx.expr(mapper, frame)
     name = mapper.name if isinstance(mapper.name, str) and mapper.name != key else "_porter_value"
-    if values.text.replace("'", '"') != emit.col(name).text:
+    if values.text.replace("'", '"') == emit.col(name).text:
+        values = emit.lit(name)  # the column itself, by its name
+    else:
         values = values.method("alias", name)
     # the labels and values collected once; the expression made from them
     replaced = column.code.method("replace_strict", emit.atom(f"lookup[{emit.lit(key).text}]"),
