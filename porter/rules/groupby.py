@@ -2100,8 +2100,9 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     be numbers without fill_value, margins, dropna=False, sort=False, observed=False on a key
     that may be a category (pandas keeps its unused categories) and lists or dicts of
     functions with columns= are TODOs; without columns=, a list of functions gives
-    (function, column) pairs of MultiIndex columns (_pivot_functions). The new columns are named by their values as text; handed to pandas,
-    those of an integer key get pandas' integer labels back.
+    (function, column) pairs of MultiIndex columns (_pivot_functions). The new columns are
+    named by their values as text; handed to pandas, those of an integer key get pandas'
+    integer labels back.
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
