@@ -111,6 +111,16 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
     if isinstance(value, Scalar):
         if value.agg is not None and value.agg.frame.rows == frame.rows:
             return value.agg.code, None
+        if value.values_of is not None and value.values_of.dtype == "str" \
+                and not value.values_of.element:
+            # list(s) of a text column, set where it is made: pandas makes a text column of
+            # it by position, as the collected column placed by position is (a missing text
+            # nan there, null here); of the frame's own rows, the column itself
+            source = value.values_of
+            if source.frame.rows == frame.rows:
+                return ctx.expr(source, frame), "str"
+            return source.frame.code.method("select", source.code).method("collect") \
+                .method("to_series"), "str"
         if value.pytype is not None and value.pytype.split("[")[0] in ("list", "tuple"):
             # a list (tolist(), then changed in place: out.reverse()) is placed by position,
             # one value per row, as pandas places it (pl.lit would put it whole in every row)
@@ -601,7 +611,7 @@ def _labelled_alike(frame: Frame, other: Frame) -> bool:
     """Both tables labelled by the same one key column, each label once (a groupby's results
     on one key, in their own order): a Series of one set into the other is aligned on it."""
     from porter.rules.selection import unique_key
-    return len(frame.index) == 1 and frame.index == other.index and frame.columns is not None \
+    return len(frame.index) == 1 and frame.index == other.index \
         and unique_key(frame) and unique_key(other)
 
 
@@ -936,7 +946,19 @@ def set_columns(call: PandasCall, ctx: RuleContext) -> Value:
     frame = call.receiver
     assert isinstance(frame, Frame)
     from porter.rules.selection import computed_names, data_columns
+    from porter.rules.selection import LevelNames
     value = computed_names(call.args[0])  # df.columns.str.strip()...: the names as a list
+    if isinstance(value, LevelNames) and value.of == frame.code:
+        # df.columns = df.columns.droplevel(n) where the data decides which columns there
+        # are: each flat name it has gets its level's name
+        new_names = [n for _, n in value.renames]
+        if len(set(new_names)) != len(new_names) or set(new_names) & set(frame.index):
+            raise Unsupported("the new names repeat a name: pandas keeps two columns of that "
+                              "name, Polars cannot")
+        return derive(frame, frame.code.method("rename", dict(value.renames), strict=False),
+                      same_rows=True, columns=None, dtypes=(), column_pairs=(),
+                      int_labels_except=None, columns_name=None,
+                      nullable_ints=_marks_after_renaming(frame), unsure_ints=())
     old_names = data_columns(frame).method("collect_schema").method("names")
     if not (isinstance(value, Opaque) and isinstance(value.const, list)):
         if isinstance(value, Opaque):

@@ -29,6 +29,7 @@ from porter.rules.strings import LIST_STR
 from porter.rules.totals import column_totals, pandas_median, pandas_reduce
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_of, derived_column, number_cells,
+    row_labels_carried,
     value_dtype, with_column_updates,
 )
 from porter.translate.values import Column, Frame, Items, Opaque, Scalar, Value
@@ -429,6 +430,8 @@ def map_(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(column, Column)
     ctx.reject_unknown(call, "arg", "func", "na_action", positional=1)
     function = _function(call)
+    if call.name == "map" and isinstance(function, Column) and not function.element:
+        return _map_by_labels(call, column, function, ctx)
     if isinstance(function, Opaque) and isinstance(function.const, dict):
         if call.name == "apply":
             raise Unsupported("apply with a dict")
@@ -512,6 +515,48 @@ def map_(call: PandasCall, ctx: RuleContext) -> Value:
         return result
     raise Unsupported("a named function porter cannot read: write its body as a lambda or as "
                       "column expressions")
+
+
+def _map_by_labels(call: PandasCall, column: Column, mapper: Column, ctx: RuleContext) -> Value:
+    """s.map(other) of a Series `other` labelled by one key column (set_index, a groupby's):
+    each value looked up among other's labels -> replace_strict(labels, values, default=None)
+    with both collected from other's frame.
+
+    pandas reindexes `other` by the values: a value no label holds is missing, a missing value
+    finds a missing label; labels that repeat raise there (InvalidIndexError) and in Polars
+    (replace_strict's `old` must not repeat). Integers are float64 in pandas where a value
+    found no label: marked (float_int) as a dict's map is."""
+    if call.const("na_action", None, None) is not None:
+        raise Unsupported("na_action= with a Series")
+    frame = mapper.frame
+    if len(frame.index) != 1 or frame.index_unnamed or row_labels_carried(frame):
+        raise Unsupported("a Series labelled by other than one key column (row numbers, or "
+                          "several keys)")
+    key = frame.index[0]
+    kinds = {column.dtype, frame.dtype(key)}
+    if len(kinds) != 1 or not kinds <= {"str", "int", "date", "datetime"}:
+        # pandas finds no label of another type (every value missing); Polars would raise
+        raise Unsupported("values and labels not known to be of one type (text, whole "
+                          "numbers or dates)")
+    if mapper.dtype not in ("str", "int", "float", "date", "datetime"):
+        # True/False become an object column with NaN where a value found no label
+        raise Unsupported("looked-up values not known to be text, numbers or dates")
+    values = ctx.expr(mapper, frame)
+    name = mapper.name if isinstance(mapper.name, str) and mapper.name != key else "_porter_value"
+    if values.text.replace("'", '"') == emit.col(name).text:
+        values = emit.lit(name)  # the column itself, by its name
+    else:
+        values = values.method("alias", name)
+    # the labels and values collected once; the expression made from them
+    replaced = column.code.method("replace_strict", emit.atom(f"lookup[{emit.lit(key).text}]"),
+                                  emit.atom(f"lookup[{emit.lit(name).text}]"), default=None)
+    code = frame.code.method("select", key, values).method("collect").method(
+        "pipe", emit.atom(f"lambda lookup: {replaced.text}"))
+    result = derived_column(column, code, name=column.name, dtype=mapper.dtype)
+    if mapper.dtype == "int":
+        # float64 in pandas when a value found no label (or the Series held a missing value)
+        result = replace(result, float_int="map() found a value no label of the Series holds")
+    return result
 
 
 # -- what a lambda body may contain --------------------------------------------------------

@@ -538,6 +538,65 @@ def groupby(call: PandasCall, ctx: RuleContext) -> Value:
                    key_list=isinstance(by, Opaque) and isinstance(by.const, list))
 
 
+@rule("series.groupby")
+def series_groupby(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.groupby(level=...) of a Series labelled by key columns (a groupby's result) -> a
+    pending group_by on those key columns, the Series the one column to aggregate.
+
+    Handles: level by name or position, one or a list; sort= and dropna= as for a frame (a
+    row whose level is missing is left out); the other levels stay labels of what head(),
+    nth() and the windows keep (they are columns of the frame).
+    Caveats: by= (a Series, a function or a mapping of the labels) and a Series labelled
+    0..n-1 are TODOs.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "level", "sort", "dropna", "group_keys", "observed")
+    if call.has("by", 0) or not call.has("level"):
+        raise Unsupported("grouping a Series by values (by=): porter reads level= only")
+    frame = column.frame
+    if not frame.index or column.element:
+        raise Unsupported("level= of a Series labelled 0..n-1")
+    levels = call.const_values("level", None, kinds=(str, int))
+    keys: list[str] = []
+    for level in levels or ():
+        if isinstance(level, bool):
+            raise Unsupported("level=True")
+        if isinstance(level, int):
+            if not -len(frame.index) <= level < len(frame.index):
+                raise Unsupported("a level position the index does not have (pandas raises)")
+            keys.append(frame.index[level])
+        elif level in frame.index and not frame.index_unnamed:
+            keys.append(level)
+        else:
+            raise Unsupported(f"level {level!r} is not a name of the index (pandas raises)")
+    if not keys or len(set(keys)) != len(keys):
+        raise Unsupported("no level, or a level named twice")
+    if call.const("observed", None, True) is not True \
+            and not all(frame.dtype(k) in ("str", "int", "float", "bool", "date", "datetime")
+                        for k in keys):
+        raise Unsupported("observed=False adds unseen categories")
+    name = column.name
+    if name is None or name in frame.index or column.code.text != emit.col(name).text:
+        # a computed Series: made a column of its frame first, named apart from the keys
+        name = name if isinstance(name, str) and name not in frame.index and \
+            (frame.columns is None or name not in frame.columns) else "_porter_values"
+        frame = derive(frame, frame.code.method("with_columns", column.code.method("alias", name)),
+                       same_rows=True, columns=None if frame.columns is None else
+                       (*(c for c in frame.columns if c != name), name),
+                       dtypes=tuple((c, t) for c, t in frame.dtypes if c != name)
+                       + (((name, column.dtype),) if column.dtype else ()))
+        if name == "_porter_values":
+            raise Unsupported("a computed Series whose name porter cannot keep")
+    return Grouped(frame.code, frame=frame, keys=tuple(keys),
+                   sort=bool(call.const("sort", None, True)),
+                   dropna=bool(call.const("dropna", None, True)),
+                   group_keys=bool(call.const("group_keys", None, True, kinds=(bool,))),
+                   selection=(name,), single=True,
+                   key_list=isinstance(call.kwargs.get("level"), Opaque)
+                   and isinstance(call.kwargs["level"].const, list))
+
+
 def _computed_key(call: PandasCall, frame: Frame, by: Column, ctx: RuleContext) -> Value:
     """df.groupby(df["ts"].dt.date) -> the Series made a key column named like it, then
     grouped by it. Its frame holds other rows than `frame` (its key column is not the
@@ -2056,8 +2115,10 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     Caveats: one values column and one columns key; sum, min and max of a column not known to
     be numbers without fill_value, margins, dropna=False, sort=False, observed=False on a key
     that may be a category (pandas keeps its unused categories) and lists or dicts of
-    functions are TODOs. The new columns are named by their values as text; handed to pandas,
-    those of an integer key get pandas' integer labels back.
+    functions with columns= are TODOs; without columns=, a list of functions gives
+    (function, column) pairs of MultiIndex columns (_pivot_functions). The new columns are
+    named by their values as text; handed to pandas, those of an integer key get pandas'
+    integer labels back.
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
@@ -2144,12 +2205,7 @@ def _pivot_without_columns(call: PandasCall, frame: Frame, index: Any, values: A
     if call.const("observed", None, True) is not True and not all(
             frame.dtype(k) in ("str", "int", "float", "bool", "date", "datetime") for k in keys):
         raise Unsupported("observed=False keeps the unused categories of a category key")
-    aggfunc = call.const("aggfunc", 3, "mean", kinds=(str, dict))
-    hows = aggfunc if isinstance(aggfunc, dict) else {v: aggfunc for v in names}
-    if set(hows) != set(names) or not all(isinstance(h, str) and h in _PIVOT_ROW_FUNCTIONS
-                                          for h in hows.values()):
-        raise Unsupported(f"aggfunc other than one of {', '.join(_PIVOT_ROW_FUNCTIONS)} per "
-                          "value column (a dict naming each of them)")
+    aggfunc = call.const("aggfunc", 3, "mean", kinds=(str, dict, list))
     fill = call.const("fill_value", 4, None)
     if fill is not None and (isinstance(fill, bool) or not isinstance(fill, (int, float))):
         raise Unsupported("a fill_value that is not a number")
@@ -2158,6 +2214,13 @@ def _pivot_without_columns(call: PandasCall, frame: Frame, index: Any, values: A
         raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
     ordered = sorted(names)  # pandas sorts the columns of the table (sort=True)
     by = keys[0] if isinstance(index, str) else keys
+    if isinstance(aggfunc, list):
+        return _pivot_functions(frame, keys, by, ordered, aggfunc, fill, ctx)
+    hows = aggfunc if isinstance(aggfunc, dict) else {v: aggfunc for v in names}
+    if set(hows) != set(names) or not all(isinstance(h, str) and h in _PIVOT_ROW_FUNCTIONS
+                                          for h in hows.values()):
+        raise Unsupported(f"aggfunc other than one of {', '.join(_PIVOT_ROW_FUNCTIONS)} per "
+                          "value column (a dict naming each of them)")
     frame_name = "_porter_pivoted"
     expr = cst.parse_expression(f"{frame_name}.groupby({by!r})[{ordered!r}].agg("
                                 f"{ {v: hows[v] for v in ordered}!r})")
@@ -2183,6 +2246,56 @@ def _pivot_without_columns(call: PandasCall, frame: Frame, index: Any, values: A
     else:
         ctx.lower("a table without rows keeps its columns, which pandas drops (dropna=True)", 0.95)
     return replace(table, code=code, rows=fresh_token(), columns=columns)
+
+
+def _pivot_functions(frame: Frame, keys: list[str], by: Any, ordered: list[str],
+                     hows: list[Any], fill: Any, ctx: RuleContext) -> Value:
+    """df.pivot_table(index=keys, values=cols, aggfunc=[how, ...]) without columns=: pandas
+    pivots once per function and puts the tables side by side (concat with the functions as
+    keys), so each column is labelled by a (function, value column) pair, the functions in
+    the order given and the value columns sorted within each. Ported as one groupby with a
+    named aggregation per pair, the flat names ("sum_kg") carrying their pairs
+    (Frame.column_pairs). A function's table drops the groups whose values are all missing
+    and then a column whose every value is missing; side by side, a group is kept when one
+    table has it (a sum or count has every group)."""
+    if not hows or not all(isinstance(h, str) and h in _PIVOT_ROW_FUNCTIONS for h in hows) \
+            or len(set(hows)) != len(hows):
+        raise Unsupported(f"a list of functions other than distinct ones of "
+                          f"{', '.join(_PIVOT_ROW_FUNCTIONS)} (pandas names a function's "
+                          "table by its __name__)")
+    if fill is not None:
+        # each function's table is filled before they are put side by side, where the
+        # groups one of them dropped come back missing
+        raise Unsupported("fill_value with a list of functions")
+    pairs = [(f"{how}_{v}", (how, v)) for how in hows for v in ordered]
+    if any(flat in keys for flat, _ in pairs):
+        raise Unsupported("a function_column name that is an index key's")
+    named = ", ".join(f"{flat}=({v!r}, {how!r})" for flat, (how, v) in pairs)
+    frame_name = "_porter_pivoted"
+    table = ctx.evaluate(cst.parse_expression(f"{frame_name}.groupby({by!r}).agg({named})"),
+                         {frame_name: frame})
+    if not isinstance(table, Frame) or tuple(table.index) != tuple(keys):
+        raise Unsupported("the groupby porter would port it as is kept on pandas")
+    code = table.code
+    missing = [flat for flat, (how, _) in pairs if how in ("mean", "median", "min", "max")]
+    rows = table.rows  # the groupby's rows, one per key, sorted: alignable on the key
+    if missing and len(missing) == len(pairs):
+        # a group whose every value is missing: every function's table drops its row
+        code = code.method("filter", emit.pl("any_horizontal", emit.col(missing).method(
+            "is_not_null")))
+        rows = fresh_token()
+    columns = table.columns
+    if missing:
+        # a column whose every value is missing (a sum or count only where there is no row
+        # at all): pandas drops it (dropna=True), which the data decides
+        flats = [flat for flat, _ in pairs]
+        code = code.method("collect").method("pipe", emit.atom(
+            f"lambda t: t.drop([c for c in {emit.lit(flats).text} if t[c].is_null().all()])"
+        )).method("lazy")
+        columns = None
+    else:
+        ctx.lower("a table without rows keeps its columns, which pandas drops (dropna=True)", 0.95)
+    return replace(table, code=code, rows=rows, columns=columns, column_pairs=tuple(pairs))
 
 
 @rule("groupby.ngroups")

@@ -78,7 +78,7 @@ def series_values(call: PandasCall, ctx: RuleContext) -> Value:
         # otherwise Polars' texts, the same str objects in a list or an object array
         code = emit.call(handover.VALUES_FUNCTION, _series(column))
         if call.name in ("tolist", "to_list"):
-            return Scalar(code.method("to_list"), pytype="list")
+            return Scalar(code.method("to_list"), pytype="list", values_of=column)
         return Scalar(code.method("to_numpy"), pytype="array")
     if column.dtype in ("category", "enum") and not column.element:
         # pandas' Categorical: tolist() and to_numpy() give the labels and nan for a missing

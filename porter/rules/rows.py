@@ -359,6 +359,49 @@ def rename_axis(call: PandasCall, ctx: RuleContext) -> Value:
     return renamed
 
 
+@rule("series.droplevel")
+def series_droplevel(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.droplevel(level) of a Series labelled by several key columns -> those keys dropped
+    from its frame; the labels left are the other keys.
+
+    Handles: a level by name or position, or a list of them, while one key is left.
+    Caveats: dropping every level (pandas raises), a level the index lacks, and axis=1 are
+    TODOs; the labels left may repeat (as in pandas), so what reads them as distinct (sort_index
+    of one key, alignment) does not.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "level", "axis", positional=1)
+    if call.const("axis", None, 0, kinds=(int, str)) not in (0, "index", "rows"):
+        raise ctx.todo("axis=1: a Series has one axis")
+    frame = column.frame
+    levels = call.const_values("level", 0, kinds=(str, int))
+    if len(frame.index) < 2 or frame.index_unnamed or not levels:
+        raise ctx.todo("a Series labelled by other than several named key columns")
+    dropped: list[str] = []
+    for level in levels:
+        if isinstance(level, int) and not isinstance(level, bool) \
+                and -len(frame.index) <= level < len(frame.index):
+            dropped.append(frame.index[level])
+        elif isinstance(level, str) and level in frame.index:
+            dropped.append(level)
+        else:
+            raise ctx.todo(f"level {level!r} is not a level of the index (pandas raises)")
+    kept = tuple(k for k in frame.index if k not in dropped)
+    if not kept:
+        raise ctx.todo("dropping every level (pandas raises)")
+    name = column.name
+    if name is None or name in frame.index or column.code.text != emit.col(name).text:
+        raise ctx.todo("a computed Series: name it and reset_index() first")
+    code = frame.code.method("select", *kept, name)
+    rows = derive(frame, code, same_rows=False, index=kept, columns=(*kept, name),
+                  dtypes=tuple((c, t) for c, t in frame.dtypes if c in (*kept, name)),
+                  grouped_rows=None, levels_as_met=False, levels_with_missing=False)
+    return Column(column.code, frame=rows, name=name, dtype=column.dtype,
+                  null_is_false=column.null_is_false, float_int=column.float_int,
+                  nullable_int=column.nullable_int)
+
+
 @rule("series.reset_index")
 def series_reset_index(call: PandasCall, ctx: RuleContext) -> Value:
     """s.reset_index() -> a frame of the index columns and the values (name= renames them)."""
@@ -800,9 +843,12 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
     ascending=False); a sort by the key column on a table labelled by one key of distinct
     values (a groupby's, df.sum()'s column names).
 
-    Handles: a missing key last (na_position="last"); text by code point in both.
+    Handles: a missing key last (na_position="last"); text by code point in both; labels of
+    several keys of text, whole numbers, dates or True/False (a MultiIndex: pandas' lexsort
+    is stable, so rows of one label keep their order, as maintain_order=True).
     Caveats: labels after a filter or a sort (row numbers porter does not keep), labels that
-    may repeat (pandas' quicksort puts ties in no set order), several keys, axis=1, level=,
+    may repeat (pandas' quicksort puts ties in no set order), several keys of other types,
+    axis=1, level=,
     key= and na_position="first" are TODOs. sort_index(by=...) of older pandas is
     sort_values (rules/legacy.py).
     """
@@ -843,6 +889,17 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
         if not ascending:
             kwargs["descending"] = True
         code = frame.code.method("sort", frame.index[0], **kwargs)
+    elif len(frame.index) > 1 and not frame.index_unnamed and all(
+            frame.dtype(k) in ("str", "int", "bool", "date", "datetime") for k in frame.index):
+        # labels of several keys (a MultiIndex): pandas sorts them with numpy's lexsort on
+        # the levels' codes, which is stable (rows of one label keep their order, both ways),
+        # a missing key last in its level; a groupby(dropna=False) made it a value of its
+        # level (levels_with_missing), sorted last among them, so first when descending
+        kwargs = {"nulls_last": ascending or not frame.levels_with_missing,
+                  "maintain_order": True}
+        if not ascending:
+            kwargs["descending"] = True
+        code = frame.code.method("sort", list(frame.index), **kwargs)
     else:
         raise ctx.todo("row labels that are original row numbers after a filter or sort, or "
                        "keys that may repeat: keep them in a column (with_row_index) and sort "

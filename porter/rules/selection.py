@@ -492,6 +492,11 @@ def _index_of(frame: Frame, ctx: RuleContext) -> Value:
         numbers = emit.pl("int_range", emit.pl("len"), dtype=emit.atom("pl.Int64"))
         # pandas' RangeIndex: read by position too (df.index[-1] is the last row number)
         return Column(numbers, frame=frame, name=None, dtype="int", index_values=True)
+    if len(frame.index) > 1 and not frame.index_unnamed:
+        # a MultiIndex: waiting for get_level_values (index_level_values); handed over as
+        # pandas' index of the frame
+        return Accessor(Code(f"{frame.code.text}.index"), column=column_of(frame, frame.index[0]),
+                        kind="levels", index_of=frame)
     if len(frame.index) != 1:
         raise ctx.todo("the index is not data in Polars: keep the labels in a column "
                        "(with_row_index) and use it")
@@ -501,6 +506,30 @@ def _index_of(frame: Frame, ctx: RuleContext) -> Value:
                         kind="dt", index_of=frame)
     return replace(column_of(frame, key), name=None if frame.index_unnamed else key,
                    index_values=True)
+
+
+@rule("series.levels.get_level_values")
+def index_level_values(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.index.get_level_values(level) / df.index.get_level_values(level) -> that key column,
+    on a table labelled by several key columns (a groupby's): the level's values in the rows'
+    order.
+
+    Handles: the level by name or position; list(), tolist(), iteration read them as
+    s.index of one key does.
+    Caveats: a level the index does not have is a TODO (pandas raises)."""
+    accessor = call.receiver
+    assert isinstance(accessor, Accessor) and accessor.index_of is not None
+    frame = accessor.index_of
+    ctx.reject_unknown(call, "level", positional=1)
+    level = call.const("level", 0, None, kinds=(str, int))
+    if isinstance(level, int) and not isinstance(level, bool) \
+            and -len(frame.index) <= level < len(frame.index):
+        key = frame.index[level]
+    elif isinstance(level, str) and level in frame.index:
+        key = level
+    else:
+        raise ctx.todo(f"level {level!r} is not a level of the index (pandas raises)")
+    return replace(column_of(frame, key), index_values=True)
 
 
 @rule("frame.index.assign")
@@ -578,7 +607,17 @@ def columns(call: PandasCall, ctx: RuleContext) -> Value:
     if pairs:
         names = [c for c in frame.columns if c not in frame.index] if frame.columns is not None \
             else None
-        if names is None or any(n in pairs for n in names) and not all(n in pairs for n in names):
+        if names is None:
+            # the pairs of a table whose columns the data decides (a pivot_table dropped the
+            # columns without a value): read at run time; a column that is not a pair fails
+            ctx.lower("pandas' columns are a MultiIndex: here a list of its (column, function) "
+                      "pairs", 0.9)
+            items = ", ".join(f"{emit.lit(flat).text}: ({emit.lit(a).text}, {emit.lit(b).text})"
+                              for flat, (a, b) in pairs.items())
+            listed = data_columns(frame).method("collect_schema").method("names")
+            return Scalar(emit.atom(f"[{{{items}}}[c] for c in {listed.text}]"), pytype="list",
+                          of=frame)
+        if any(n in pairs for n in names) and not all(n in pairs for n in names):
             raise ctx.todo("pandas' columns are a MultiIndex here, with columns that are not "
                            "(column, function) pairs")
         if any(n in pairs for n in names):
@@ -605,6 +644,54 @@ def columns(call: PandasCall, ctx: RuleContext) -> Value:
                                 f".isdecimal() else c for c in {names.text}]"),
                       pytype="list", of=frame)
     return Scalar(names, pytype="list[str]", of=frame)
+
+
+@rule("frame.columns.droplevel")
+def columns_droplevel(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.columns.droplevel(n) of the (column, function) pairs of MultiIndex columns -> the
+    names of the level kept, as a list (porter's columns are flat: "kg_sum" for ("kg", "sum")).
+
+    Handles: level 0 or 1 (-1, -2) of two levels; the names may repeat, as pandas' do (a new
+    df.columns that repeats a name is a TODO there); a table whose columns the data decides
+    (pivot_table dropping a column without a value) gets the names of those it has, at
+    run time.
+    Caveats: a level named by text, or several levels, is a TODO.
+    """
+    names = call.receiver
+    assert isinstance(names, Scalar) and isinstance(names.of, Frame)
+    frame = names.of
+    ctx.reject_unknown(call, "level", positional=1)
+    level = call.const("level", 0, None, kinds=(int, list))
+    if isinstance(level, list) and len(level) == 1:
+        level = level[0]
+    if isinstance(level, bool) or level not in (0, 1, -1, -2):
+        raise ctx.todo("a level other than 0 or 1 of the two levels of (column, function) pairs")
+    pairs = dict(frame.column_pairs)
+    keep = 1 - level % 2  # droplevel(0) keeps the second name
+    data = [c for c in frame.columns if c not in frame.index] if frame.columns is not None \
+        else None
+    if data is not None and not all(c in pairs for c in data):
+        raise ctx.todo("pandas' columns are a MultiIndex here, with columns that are not "
+                       "(column, function) pairs")
+    if data is not None:
+        kept = [str(pairs[c][keep]) for c in data]
+        return Opaque(emit.lit(kept), const=kept)
+    # the names read at run time; df.columns = ... renames the flat names it finds
+    # (rules/assign.py, set_columns)
+    renames = {flat: str(pair[keep]) for flat, pair in pairs.items()}
+    listed = data_columns(frame).method("collect_schema").method("names")
+    return LevelNames(emit.atom(f"[{emit.lit(renames).text}[c] for c in {listed.text}]"),
+                      renames=tuple(renames.items()), of=frame.code)
+
+
+@dataclass(frozen=True)
+class LevelNames(Opaque):
+    """df.columns.droplevel(n) of a frame whose columns the data decides: the names at run
+    time (`code`), and each flat name with the name it gets, for df.columns = ... of the
+    frame whose code is `of`."""
+
+    renames: tuple[tuple[str, str], ...] = field(kw_only=True)
+    of: Code = field(kw_only=True)
 
 
 def _by_text(frame: Frame, names: Code) -> Code:

@@ -474,6 +474,10 @@ class Evaluator:
             if name in (receiver.frame.columns or ()):  # r.kg: the column, as r["kg"]
                 return self.dispatch("resample.getitem", PandasCall(
                     receiver, "getitem", (Opaque(emit.lit(name), const=name),), node=node), node)
+        if isinstance(receiver, Accessor) and receiver.kind == "levels" \
+                and name == "get_level_values":
+            # s.index of several keys (rules/selection.py, index_level_values)
+            return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
         if isinstance(receiver, Accessor):
             names = pandas_names.STR if receiver.kind == "str" else \
                 _WINDOW_METHODS if receiver.kind in handover.WINDOW_KINDS else pandas_names.DT
@@ -638,6 +642,12 @@ class Evaluator:
             return self.generic(node)
         if attr == "str":  # string methods on the names (rules/selection.py, columns_str)
             return replace(names, pytype="names.str")
+        if attr == "droplevel" and isinstance(names.of, Frame) and names.of.column_pairs:
+            # the (column, function) pairs of MultiIndex columns (rules/selection.py)
+            # the names of a level are exact: the list of pairs' lowered confidence goes
+            kept = tuple(s for s in names.sites if s.key != "frame.columns")
+            return BoundMethod(names.code, receiver=replace(names, pytype="names.pairs",
+                                                            sites=kept), name=attr)
         line, end_line = self.services.position(node)
         site = SiteDraft("frame.columns.index", "todo", "todo", 0.0,
                          f"pandas' Index.{attr} on the column names: porter's names are a list",
@@ -671,7 +681,7 @@ class Evaluator:
         if lookup is not None:
             return lookup
         if isinstance(func, BoundMethod) and isinstance(func.receiver, Scalar) \
-                and func.receiver.pytype != "names.str":
+                and func.receiver.pytype not in ("names.str", "names.pairs"):
             return func.receiver  # tolist() of the column names: already a list
         if not isinstance(func, (BoundMethod, Module)):
             return self.generic(node)
@@ -1555,6 +1565,8 @@ def _prefix(value: Value) -> str:
         return f"{'series' if value.column is not None else 'frame'}.{value.kind}"
     if isinstance(value, Scalar) and value.pytype == "names.str":
         return "frame.columns.str"
+    if isinstance(value, Scalar) and value.pytype == "names.pairs":
+        return "frame.columns"
     return "value"
 
 

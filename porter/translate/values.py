@@ -187,6 +187,9 @@ class Scalar(Value):
     # an array of pandas' values (unique() of text or categories): "text" when its items are
     # text with nan for a missing one, which a loop variable over it keeps (context.expr_in)
     items: str | None = field(default=None, kw_only=True)
+    # the list of a column's values (list(s), s.tolist()) as written where it is made (a name
+    # bound to it loses the mark: the list may change in place)
+    values_of: "Column | None" = field(default=None, kw_only=True)
 
 
 @dataclass(frozen=True)
