@@ -130,3 +130,36 @@ def test_a_conflicting_margins_name_raises_as_in_pandas(body: str, data: Path) -
 def test_margins_todo(body: str, reason: str, data: Path) -> None:
     result = convert(HEAD + body + "\n", data_dir=str(data))
     assert any(reason in s.message for s in result.todos), [s.message for s in result.todos]
+
+
+@pytest.mark.parametrize("body", [
+    # crosstab's margins too: a keeper or a station already named like them
+    'log["keeper"] = log["keeper"].fillna("All")\n'
+    'result = pd.crosstab(log["keeper"], log["station"], margins=True)',
+    'log["station"] = log["station"].replace("Ness", "All")\n'
+    'result = pd.crosstab(log["keeper"], log["station"], margins=True)',
+    'result = pd.crosstab(log["keeper"], log["station"], margins=True, margins_name="Holm", '
+    'normalize="index")',
+])
+def test_a_conflicting_crosstab_margins_name_raises_as_in_pandas(body: str, data: Path) -> None:
+    source = HEAD + body + "\n"
+    with pytest.raises(ValueError, match="Conflicting name"):
+        run(source)
+    result = convert(source, data_dir=str(data))
+    assert not result.todos, result.converted_text
+    with pytest.raises(ValueError, match="Conflicting name"):
+        run(result.converted_text)
+
+
+@pytest.mark.parametrize("body", [
+    'result = pd.crosstab(log["keeper"], log["station"], margins=True)',
+    'result = pd.crosstab(log["keeper"], log["month"], margins=True, margins_name="Total")',
+    'result = pd.crosstab(log["keeper"], log["wicks"], margins=True, normalize="all")',
+    'result = pd.crosstab(log["station"], log["keeper"], margins=True, normalize="index")',
+    'result = pd.crosstab(log["station"], log["keeper"], margins=True, normalize="columns")',
+    'e = log[log["litres"] > 100]\nresult = pd.crosstab(e["keeper"], e["station"], margins=True)',
+])
+def test_crosstab_margins_match_pandas(body: str, data: Path) -> None:
+    source = HEAD + body + "\n"
+    assert not _todos(source, data), convert(source, data_dir=str(data)).converted_text
+    differential(source, data_dir=str(data))

@@ -304,6 +304,22 @@ def pandas_pivot_margins(table, frame, index, columns, values, total, name="All"
     )
 """
 
+# A function, defined once at the top of a converted script, that adds crosstab's margins
+# (margins=True) to a table of counts of one index key, as pandas adds them.
+COUNT_MARGINS_FUNCTION = "pandas_count_margins"
+COUNT_MARGINS_DEFINITION = """\
+def pandas_count_margins(table, key, name="All"):
+    \"\"\"crosstab(margins=True) of counts: a last column `name` with each row's total and a
+    last row `name` with each column's total, as pandas adds them; pandas raises when a key
+    already holds that name. A table without rows stays as it is.\"\"\"
+    if table.is_empty():
+        return table
+    if (table[key] == name).any() or name in table.drop(key).columns:
+        raise ValueError(f'Conflicting name "{name}" in margins')
+    table = table.with_columns(pl.sum_horizontal(pl.exclude(key)).alias(name))
+    return pl.concat([table, table.select(pl.lit(name).alias(key), pl.exclude(key).sum())])
+"""
+
 # A function, defined once at the top of a converted script, that counts an Enum column (a
 # pandas Categorical) as pandas' value_counts does: every category, those no row holds included.
 CATEGORY_COUNTS_FUNCTION = "pandas_category_counts"
