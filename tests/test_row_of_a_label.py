@@ -97,3 +97,13 @@ def test_a_label_no_row_holds_raises_as_in_pandas(body: str, data: Path) -> None
 def test_the_row_of_a_label_todo(body: str, reason: str, data: Path) -> None:
     result = convert(HEAD + body + "\n", data_dir=str(data))
     assert any(reason in s.message for s in result.todos), [s.message for s in result.todos]
+
+
+def test_a_printed_row_is_laid_out_one_step_per_line(data: Path) -> None:
+    # print(row) of a long chain: broken before each step, .loc["label"] the last, as the
+    # same chain assigned to a name is
+    source = HEAD + ('b = pd.read_csv("locks.csv", index_col="boat")\n'
+                     'print(b.loc["Kingfisher"])\nrow = b.loc["Kingfisher"]\n')
+    text = convert(source, data_dir=str(data)).converted_text
+    assert '\n    .loc["Kingfisher"],\n)' in text, text
+    assert '\n    .loc["Kingfisher"]\n)' in text, text
