@@ -62,6 +62,11 @@ PIVOTS = [
     'result = log.pivot_table(index="station", columns="keeper", values="wicks", margins=True)',
     'result = log.pivot_table(index="station", columns="keeper", values="litres", aggfunc="mean", '
     'fill_value=0, margins=True, margins_name="Total")',
+    'result = log.pivot_table(index="keeper", columns="station", values="litres", '
+    'aggfunc="median", margins=True)',
+    # counts without fill_value: the cells float, the total column whole numbers
+    'result = log.pivot_table(index="keeper", columns="month", values="wicks", aggfunc="count", '
+    'margins=True, margins_name="Σ")',
     # counts of a float column with missing values: Ùna's only gallons are missing, so her
     # total is missing (the column float) while her cells are 0
     'result = log.pivot_table(index="keeper", columns="station", values="gallons", '
