@@ -78,6 +78,10 @@ PIVOTS = [
     'aggfunc="count", fill_value=0, margins=True)',
     'result = log.pivot_table(index="keeper", columns="month", values="gallons", '
     'aggfunc="count", margins=True)',
+    # no value at all: every row total missing, the grand total 0
+    'e = log[log["gallons"].isna()]\n'
+    'result = e.pivot_table(index="keeper", columns="station", values="gallons", '
+    'aggfunc="count", fill_value=0, margins=True)',
     # no row left: the empty table pandas gives
     'result = log[log["litres"] > 100].pivot_table(index="keeper", columns="station", '
     'values="litres", aggfunc="sum", fill_value=0, margins=True)',
