@@ -384,9 +384,15 @@ def _chain_parts(arg: Any, min_steps: int = 2) -> tuple[str, list[str]] | None:
     node: cst.BaseExpression = arg.value
     steps: list[str] = []
     indexed = ""  # `.to_numpy()[0]`: the index stays on the last step
+    last = ""  # `.loc["label"]` / `.iloc[0]` after a call: a step of its own, the last
     if isinstance(node, cst.Subscript) and not node.lpar and isinstance(node.value, cst.Call):
         indexed = module.code_for_node(node)[len(module.code_for_node(node.value)):]
         node = node.value
+    elif isinstance(node, cst.Subscript) and not node.lpar \
+            and isinstance(node.value, cst.Attribute) and not node.value.lpar \
+            and isinstance(node.value.value, cst.Call):
+        last = module.code_for_node(node)[len(module.code_for_node(node.value.value)):]
+        node = node.value.value
     while isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute) \
             and not node.lpar and not node.func.lpar:
         inner = node.func.value
@@ -404,6 +410,8 @@ def _chain_parts(arg: Any, min_steps: int = 2) -> tuple[str, list[str]] | None:
             break
         steps.insert(0, "".join(attributes) + step)
         node = inner
+    if last:
+        steps.append(last)
     if len(steps) < min_steps:
         return None
     steps[-1] += indexed

@@ -17,7 +17,8 @@ from porter.rules.elementwise import body_expression
 from porter.rules.totals import pandas_median, pandas_reduce
 from porter.rules.ops import float32_possible, small_ints_possible
 from porter.rules.io_options import (
-    CATEGORY_COUNTS_FUNCTION, DIVIDE_FUNCTION, QUANTILE_FUNCTION, UNSTACKED_FUNCTION,
+    CATEGORY_COUNTS_FUNCTION, DIVIDE_FUNCTION, MARGINS_FUNCTION, QUANTILE_FUNCTION,
+    UNSTACKED_FUNCTION,
 )
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, check_same_rows, column_names, column_of, derive,
@@ -2111,9 +2112,12 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     (sorted before the pivot: Polars names them as text) and the rows sorted by the index
     keys; fill_value fills the missing cells; without it, sum, count, min and max of numbers
     turn every cell float when one is missing, as pandas does (pandas_unstacked decides on the
-    pivoted table); the index keys stay label columns.
+    pivoted table); the index keys stay label columns; margins=True of one text index key,
+    of whole numbers or a count (pandas_pivot_margins: the total column and row last, computed
+    as pandas computes them).
     Caveats: one values column and one columns key; sum, min and max of a column not known to
-    be numbers without fill_value, margins, dropna=False, sort=False, observed=False on a key
+    be numbers without fill_value, margins of several index keys, of a key not known to be
+    text or of floats, dropna=False, sort=False, observed=False on a key
     that may be a category (pandas keeps its unused categories) and lists or dicts of
     functions with columns= are TODOs; without columns=, a list of functions gives
     (function, column) pairs of MultiIndex columns (_pivot_functions). The new columns are
@@ -2123,7 +2127,7 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     frame = call.receiver
     assert isinstance(frame, Frame)
     ctx.reject_unknown(call, "values", "index", "columns", "aggfunc", "fill_value", "dropna",
-                       "margins", "sort", "observed", positional=5)
+                       "margins", "margins_name", "sort", "observed", positional=5)
     index = call.const("index", 1, None, kinds=(str, list, tuple))
     columns = call.const("columns", 2, None, kinds=(str, list, tuple))
     values = call.const("values", 0, None, kinds=(str, list, tuple))
@@ -2139,9 +2143,10 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     keys = [index] if isinstance(index, str) else list(index or [])
     if not keys or not all(isinstance(k, str) for k in keys):
         raise Unsupported("a pivot without index keys")
-    if call.const("margins", None, False) or not call.const("dropna", None, True) \
-            or not call.const("sort", None, True):
-        raise Unsupported("margins, dropna=False or sort=False")
+    margins = call.const("margins", None, False, kinds=(bool,))
+    margins_name = call.const("margins_name", None, "All", kinds=(str,))
+    if not call.const("dropna", None, True) or not call.const("sort", None, True):
+        raise Unsupported("dropna=False or sort=False")
     if call.const("observed", None, True) is not True and not all(
             frame.dtype(k) in ("str", "int", "float", "bool", "date", "datetime")
             for k in (*keys, columns)):
@@ -2174,11 +2179,39 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     # count cells are integers whatever the values' type (a float column's too)
     code = pivot_sorted(code, columns, keys, values, fill,
                         float_when_missing and (value_dtype != "float" or how == "count"))
+    if margins:
+        code = _pivot_margins(code, frame, keys, columns, values, how, value_dtype,
+                              margins_name, fill)
     ctx.lower("the new columns are named by their values as text (pandas keeps the values)", 0.95)
     # pandas code given the table finds the columns by the key's values (pv[2024])
-    int_labels = tuple(keys) if frame.dtype(columns) == "int" else None
+    int_labels = (*keys, *([margins_name] if margins else [])) \
+        if frame.dtype(columns) == "int" else None
     return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False,
                  int_labels_except=int_labels, columns_name=columns)
+
+
+def _pivot_margins(table: Code, frame: Frame, keys: list[str], columns: str, values: str,
+                   how: str, dtype: str | None, name: str, fill: Any) -> Code:
+    """margins=True: the pivoted table given to pandas_pivot_margins, which adds the total
+    column and row `name` as pandas computes them (each over the rows where neither key nor
+    the value is missing, a row of totals last and a column last, a missing total making an
+    integer column float)."""
+    if len(keys) != 1 or frame.dtype(keys[0]) != "str":
+        raise Unsupported("margins with several index keys or a key not known to be text "
+                          "(the total row's label goes into it)")
+    if how == "count" and dtype is None or how != "count" and dtype != "int":
+        # float totals: pandas adds floats in its own order (a compensated sum per group)
+        raise Unsupported(f"margins of {how} of a column not known to be whole numbers")
+    total = agg_expr(emit.col(values), how, dtype)
+    if "pandas_" in total.text:
+        raise Unsupported(f"margins of {how}")
+    kwargs: dict[str, Any] = {}
+    if name != "All":
+        kwargs["name"] = name
+    if fill is not None:
+        kwargs["fill_value"] = fill
+    return table.method("pipe", emit.atom(MARGINS_FUNCTION), frame.code, keys[0], columns,
+                        values, total, **kwargs)
 
 
 _PIVOT_ROW_FUNCTIONS = ("sum", "mean", "median", "min", "max", "count")

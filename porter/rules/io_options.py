@@ -266,6 +266,60 @@ def pandas_unstacked(table, keys):
     return table
 """
 
+# A function, defined once at the top of a converted script, that adds pivot_table's margins
+# (margins=True) to a pivoted table of one index key and one columns key, as pandas adds them.
+MARGINS_FUNCTION = "pandas_pivot_margins"
+MARGINS_DEFINITION = """\
+def pandas_pivot_margins(table, frame, index, columns, values, total, name="All", fill_value=None):
+    \"\"\"pivot_table(margins=True): a last column `name` with each row's total and a last row
+    `name` with each column's total and the grand total, each `total` (the aggregation of
+    `values`) over the rows of `frame` where neither key nor the value is missing, as pandas
+    computes them. A column without a total gets `fill_value` in the last row; a row without
+    one keeps its total missing; an integer column holding a missing value becomes float, as
+    in pandas. A table without rows stays as it is.\"\"\"
+    if table.is_empty():
+        return table
+    if (table[index] == name).any() or name in table.drop(index).columns:
+        raise ValueError(f'Conflicting name "{name}" in margins')
+    kept = frame.drop_nulls([index, columns, values])
+    per_row = kept.group_by(index).agg(total.alias(name))
+    per_column = (
+        kept.group_by(columns).agg(total).sort(columns)
+        .with_columns(pl.col(columns).cast(pl.String))
+    )
+    per_row, per_column, grand = pl.collect_all([per_row, per_column, kept.select(total.alias(name))])
+    last = per_column.transpose(column_names=columns)
+    absent = [c for c in table.columns if c != index and c not in last.columns]
+    last = pl.concat([
+        pl.DataFrame({index: [name]}), last.with_columns(pl.lit(fill_value).alias(c) for c in absent),
+        grand,
+    ], how="horizontal")
+    table = pl.concat([
+        table.join(per_row, on=index, how="left", maintain_order="left"),
+        last.select(table.columns + [name]),
+    ], how="vertical_relaxed")
+    return table.with_columns(
+        pl.col(c).cast(pl.Float64) for c, t in table.schema.items()
+        if t.is_integer() and table[c].has_nulls()
+    )
+"""
+
+# A function, defined once at the top of a converted script, that adds crosstab's margins
+# (margins=True) to a table of counts of one index key, as pandas adds them.
+COUNT_MARGINS_FUNCTION = "pandas_count_margins"
+COUNT_MARGINS_DEFINITION = """\
+def pandas_count_margins(table, key, name="All"):
+    \"\"\"crosstab(margins=True) of counts: a last column `name` with each row's total and a
+    last row `name` with each column's total, as pandas adds them; pandas raises when a key
+    already holds that name. A table without rows stays as it is.\"\"\"
+    if table.is_empty():
+        return table
+    if (table[key] == name).any() or name in table.drop(key).columns:
+        raise ValueError(f'Conflicting name "{name}" in margins')
+    table = table.with_columns(pl.sum_horizontal(pl.exclude(key)).alias(name))
+    return pl.concat([table, table.select(pl.lit(name).alias(key), pl.exclude(key).sum())])
+"""
+
 # A function, defined once at the top of a converted script, that counts an Enum column (a
 # pandas Categorical) as pandas' value_counts does: every category, those no row holds included.
 CATEGORY_COUNTS_FUNCTION = "pandas_category_counts"

@@ -17,7 +17,7 @@ from porter.rules import rule
 from porter.rules.groupby import agg_expr, agg_with_sums, how_name, pivot_sorted
 from porter.rules.io import polars_dtype
 from porter.rules.ops import float32_possible
-from porter.rules.io_options import DIVIDE_FUNCTION, QUANTILE_FUNCTION
+from porter.rules.io_options import COUNT_MARGINS_FUNCTION, DIVIDE_FUNCTION, QUANTILE_FUNCTION
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, check_same_rows, column_names, derived_column,
 )
@@ -87,7 +87,8 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
     columns are named by their values as text (handed to pandas, those of an integer key get
     pandas' integer labels back); boolean and datetime column keys are TODOs
     (Polars names them true / 2024-01-01 00:00:00.000000). margins=True on no rows (no row
-    with both keys) gives the empty table pandas gives.
+    with both keys) gives the empty table pandas gives, and raises as pandas does when a key
+    already holds the margins' name (pandas_count_margins).
     """
     ctx.reject_unknown(call, "index", "columns", "values", "rownames", "colnames", "aggfunc",
                        "margins", "margins_name", "dropna", "normalize", positional=10)
@@ -214,29 +215,27 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 def _margins(code: Code, key: str, name: str, normalize: str | None) -> Code:
-    """The total column and row of a table of counts (one index key), then pandas'
+    """The total column and row of a table of counts (one index key: pandas_count_margins,
+    which raises as pandas does when a key already holds the margins' name), then pandas'
     normalisation: every cell by the total ("all"), each row by its total with the total row
     kept and the total column dropped ("index"), each column by its total with the total column
     kept and the total row dropped ("columns"); each an exact division of two counts. A table
-    without rows (no row has both keys) stays as it is: pandas gives an empty table there, and
-    Polars' sum_horizontal of no columns raises."""
-    table = code
+    without rows (no row has both keys) stays as it is: pandas gives an empty table there."""
+    kwargs = {} if name == "All" else {"name": name}
+    code = code.method("pipe", emit.atom(COUNT_MARGINS_FUNCTION), key, **kwargs)
+    if normalize is None:
+        return code
     cells = emit.pl("exclude", key)
-    code = emit.atom("t").method("with_columns", emit.pl("sum_horizontal", cells).method("alias", name))
-    total_row = emit.atom("t").method("select", emit.pl("lit", name).method("alias", key),
-                                      cells.method("sum"))
-    code = code.method("pipe", emit.atom(
-        f"lambda t: pl.concat([t, {total_row.text}])"))
     if normalize == "all":
-        code = code.method("with_columns", emit.call(
+        divided = emit.atom("t").method("with_columns", emit.call(
             DIVIDE_FUNCTION, cells, emit.col(name).method("last")))
     elif normalize == "index":
-        code = code.method("with_columns", emit.call(
+        divided = emit.atom("t").method("with_columns", emit.call(
             DIVIDE_FUNCTION, emit.pl("exclude", key, name), emit.col(name))).method("drop", name)
-    elif normalize == "columns":
-        code = code.method("with_columns", emit.call(
+    else:
+        divided = emit.atom("t").method("with_columns", emit.call(
             DIVIDE_FUNCTION, cells, cells.method("last"))).method("head", -1)
-    return table.method("pipe", emit.atom(f"lambda t: t if t.is_empty() else {code.text}"))
+    return code.method("pipe", emit.atom(f"lambda t: t if t.is_empty() else {divided.text}"))
 
 
 # -- unstack ------------------------------------------------------------------------------------

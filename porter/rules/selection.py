@@ -313,9 +313,11 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     """df.loc[mask, cols] -> .filter(mask).select(cols); df.loc[:, "a"] -> a column.
 
     Handles: df.loc[s.idxmax(), "c"] of the frame the label was read from: the value on that
-    row (pl.col("c").get(the first row holding the extreme)).
-    Caveats: other row labels (df.loc[3], df.loc["a":"c"]) are TODOs: the index is not data in
-    Polars.
+    row (pl.col("c").get(the first row holding the extreme)); df.loc["label"] of a table
+    labelled by one key column: the rows holding the label picked in Polars, handed to pandas,
+    which gives its row Series (one row), a frame (several) or KeyError (none), as on the table.
+    Caveats: other row labels (df.loc[[...]], df.loc["a":"c"], labels of several keys, row
+    numbers after a filter) are TODOs: the index is not data in Polars.
     """
     frame = frame_of(call)
     rows = call.args[0]
@@ -347,6 +349,9 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
         frame = derive(frame, frame.code.method("filter", ctx.expr(rows, frame)), same_rows=False)
     elif _one_label(rows) and isinstance(cols, Opaque) and isinstance(cols.const, str):
         return _labelled_value(frame, rows, cols, ctx)  # df.loc["label", "c"], as df.at
+    elif _one_label(rows) and (cols is None or isinstance(cols, Opaque) and cols.const == slice(None)):
+        assert isinstance(rows, Opaque)
+        return _rows_by_label(frame, rows, ctx)  # df.loc["label"]: its row, pandas' Series
     elif not (isinstance(rows, Opaque) and rows.const == slice(None)):
         raise Unsupported("rows chosen by index label: the index is not data in Polars")
     if cols is None or (isinstance(cols, Opaque) and cols.const == slice(None)):
@@ -429,6 +434,32 @@ def _labelled_value(frame: Frame, label: Opaque, col: Opaque, ctx: RuleContext) 
         .method("select", name).method("collect").method("item")
     pytype = frame.dtype(name)
     return Scalar(code, pytype=pytype if pytype in ("int", "float", "str", "bool") else None)
+
+
+def _rows_by_label(frame: Frame, label: Opaque, ctx: RuleContext) -> Value:
+    """df.loc["label"] of a table labelled by one key column (set_index, read_csv(index_col=),
+    a groupby's keys): the rows whose key is the label, picked in Polars (a filter, so only
+    they are collected), handed to pandas with the key as their index and read there with
+    .loc["label"]. pandas decides what it gives as on the whole table: the row Series (values
+    typed as pandas types a row of that frame, named by the label) when one row holds the
+    label, a frame of those rows in their order when several do (porter cannot tell which
+    from the script: a key read from a file may repeat), KeyError when none does."""
+    if len(frame.index) != 1 or row_labels_carried(frame):
+        raise ctx.todo("rows chosen by index label: the index is not data in Polars (one key "
+                       "column holding the labels is ported)")
+    key = frame.index[0]
+    kinds = {str: "str", int: "int"}
+    if kinds.get(type(label.const)) != frame.dtype(key):
+        raise ctx.todo("a label of another type than the key column (or a key of unknown type)")
+    picked = derive(frame, frame.code.method("filter", emit.binop(emit.col(key), "==",
+                                                                 emit.lit(label.const))),
+                    same_rows=False)
+    ctx.handover = True
+    chain = to_pandas(picked)
+    step = f".loc[{emit.lit(label.const).text}]"
+    if chain.base is not None and chain.steps:  # laid out one step per line, .loc[...] the last
+        return PandasValue(Code(f"{chain.text}{step}", emit.ATOM, chain.base, (*chain.steps, step)))
+    return PandasValue(chain.attr("loc").index(label.const))
 
 
 def _column_label_slice(frame: Frame, piece: slice) -> Frame:
