@@ -145,9 +145,23 @@ def _nullable_again(code: Code, column: Column) -> Code:
     return code
 
 
+def product_labels(value: object):  # -> construct.ProductLabels | None
+    """The labels of a pd.MultiIndex.from_product `value` stands for, if it does."""
+    from porter.rules.construct import ProductLabels
+    if isinstance(value, Opaque) and isinstance(value.const, ProductLabels):
+        return value.const
+    return None
+
+
 def to_pandas(value: Value) -> Code:
     """The pandas object this value stands for (index restored where porter tracks one; dates,
     missing True/False values and categories as pandas holds them)."""
+    labels = product_labels(value)
+    if labels is not None:
+        # pd.MultiIndex.from_product, which porter holds as a Polars frame of its combinations
+        # (construct.ProductLabels), given to pandas code: pandas' MultiIndex of them
+        return value.code.method("collect").method("to_pandas").method(
+            "set_index", list(labels.names)).attr("index")
     if isinstance(value, Frame):
         categories = [c for c, t in value.dtypes if t == "category"]
         code = value.code
@@ -364,6 +378,8 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
         if value is None:
             return False
         if isinstance(value, Opaque):
+            if product_labels(value) is not None:
+                return True  # a Polars frame of the labels: pandas is given its MultiIndex
             if value.node is None:
                 # code porter wrote (a call of the script's own function given columns
                 # handed over): its source would subscript LazyFrames
