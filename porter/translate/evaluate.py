@@ -952,6 +952,14 @@ class Evaluator:
             if combined is not None:
                 return combined
             result = self.generic(node)
+            if isinstance(result, Opaque) and not result.is_const and op == "+" \
+                    and isinstance(left, Opaque) and isinstance(right, Opaque) \
+                    and left.is_const and right.is_const \
+                    and type(left.const) is type(right.const) and type(left.const) in (list, tuple) \
+                    and not result.sites:
+                # NAMES + ["other"]: two lists known when porter reads them, one known list
+                # (a column selection, the columns assigned to)
+                return replace(result, const=left.const + right.const)
             if isinstance(result, Opaque) and not result.is_const and op in ("+", "-", "*", "//", "%") \
                     and _whole_number(left) and _whole_number(right):
                 # len(df) * 2, s.sum() - 5: a whole number (stored as a column: Int64, as pandas)
