@@ -313,9 +313,10 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     """df.loc[mask, cols] -> .filter(mask).select(cols); df.loc[:, "a"] -> a column.
 
     Handles: df.loc[s.idxmax(), "c"] of the frame the label was read from: the value on that
-    row (pl.col("c").get(the first row holding the extreme)).
-    Caveats: other row labels (df.loc[3], df.loc["a":"c"]) are TODOs: the index is not data in
-    Polars.
+    row (pl.col("c").get(the first row holding the extreme)); df.loc["label"] of a table
+    labelled by one key column: its rows chosen by a filter, pandas' row Series made of them.
+    Caveats: other row labels (df.loc[3] by row number, df.loc["a":"c"], labels of several
+    keys) are TODOs: the index is not data in Polars.
     """
     frame = frame_of(call)
     rows = call.args[0]
@@ -347,6 +348,8 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
         frame = derive(frame, frame.code.method("filter", ctx.expr(rows, frame)), same_rows=False)
     elif _one_label(rows) and isinstance(cols, Opaque) and isinstance(cols.const, str):
         return _labelled_value(frame, rows, cols, ctx)  # df.loc["label", "c"], as df.at
+    elif _one_label(rows) and cols is None:
+        return _labelled_rows(frame, rows, ctx)  # df.loc["label"]: its row (or rows)
     elif not (isinstance(rows, Opaque) and rows.const == slice(None)):
         raise Unsupported("rows chosen by index label: the index is not data in Polars")
     if cols is None or (isinstance(cols, Opaque) and cols.const == slice(None)):
@@ -429,6 +432,25 @@ def _labelled_value(frame: Frame, label: Opaque, col: Opaque, ctx: RuleContext) 
         .method("select", name).method("collect").method("item")
     pytype = frame.dtype(name)
     return Scalar(code, pytype=pytype if pytype in ("int", "float", "str", "bool") else None)
+
+
+def _labelled_rows(frame: Frame, label: Opaque, ctx: RuleContext) -> Value:
+    """df.loc["label"] of a table labelled by one key column: the rows whose key is the label,
+    chosen in Polars (a filter), handed to pandas labelled by the key, where `.loc[label]`
+    makes what pandas makes of the whole table: the row as a Series named by the label (its
+    values typed as the row of that table), a frame of the rows when several hold the label,
+    KeyError when none does."""
+    if len(frame.index) != 1 or row_labels_carried(frame):
+        raise ctx.todo("rows chosen by index label: the index is not data in Polars (one key "
+                       "column holding the labels is ported)")
+    key = frame.index[0]
+    kinds = {str: "str", int: "int"}
+    if kinds.get(type(label.const)) != frame.dtype(key):
+        raise ctx.todo("a label of another type than the key column (or a key of unknown type)")
+    picked = replace(frame, code=frame.code.method(
+        "filter", emit.binop(emit.col(key), "==", emit.lit(label.const))))
+    ctx.handover = True
+    return PandasValue(to_pandas(picked).attr("loc").index(emit.lit(label.const)))
 
 
 def _column_label_slice(frame: Frame, piece: slice) -> Frame:
