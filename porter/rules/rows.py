@@ -843,6 +843,15 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
         if not ascending:
             kwargs["descending"] = True
         code = frame.code.method("sort", frame.index[0], **kwargs)
+    elif len(frame.index) > 1 and all(frame.dtype(k) in ("str", "int") for k in frame.index):
+        # several keys of text or whole numbers that may repeat (set_index([...])): pandas
+        # sorts a MultiIndex by its levels' codes with numpy's lexsort, which is stable (rows
+        # of one combination keep their order, both ways; a missing key last), as
+        # maintain_order=True does
+        kwargs = {"nulls_last": True, "maintain_order": True}
+        if not ascending:
+            kwargs["descending"] = True
+        code = frame.code.method("sort", list(frame.index), **kwargs)
     else:
         raise ctx.todo("row labels that are original row numbers after a filter or sort, or "
                        "keys that may repeat: keep them in a column (with_row_index) and sort "

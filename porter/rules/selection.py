@@ -348,7 +348,7 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
         frame = derive(frame, frame.code.method("filter", ctx.expr(rows, frame)), same_rows=False)
     elif _one_label(rows) and isinstance(cols, Opaque) and isinstance(cols.const, str):
         return _labelled_value(frame, rows, cols, ctx)  # df.loc["label", "c"], as df.at
-    elif _one_label(rows) and cols is None:
+    elif (_one_label(rows) or _label_tuple(rows)) and cols is None:
         return _labelled_rows(frame, rows, ctx)  # df.loc["label"]: its row (or rows)
     elif not (isinstance(rows, Opaque) and rows.const == slice(None)):
         raise Unsupported("rows chosen by index label: the index is not data in Polars")
@@ -407,6 +407,12 @@ def frame_at(call: PandasCall, ctx: RuleContext) -> Value:
     return _labelled_value(frame, rows, cols, ctx)
 
 
+def _label_tuple(value: Value) -> bool:
+    """A tuple of labels written out, one per level (df.loc[("a", 2)])."""
+    return isinstance(value, Opaque) and isinstance(value.const, tuple) and bool(value.const) \
+        and all(isinstance(p, (str, int)) and not isinstance(p, bool) for p in value.const)
+
+
 def _one_label(value: Value) -> bool:
     return isinstance(value, Opaque) and value.is_const and isinstance(value.const, (str, int)) \
         and not isinstance(value.const, bool)
@@ -440,15 +446,16 @@ def _labelled_rows(frame: Frame, label: Opaque, ctx: RuleContext) -> Value:
     makes what pandas makes of the whole table: the row as a Series named by the label (its
     values typed as the row of that table), a frame of the rows when several hold the label,
     KeyError when none does."""
-    if len(frame.index) != 1 or row_labels_carried(frame):
-        raise ctx.todo("rows chosen by index label: the index is not data in Polars (one key "
-                       "column holding the labels is ported)")
-    key = frame.index[0]
+    parts = label.const if isinstance(label.const, tuple) else (label.const,)
+    if not frame.index or len(parts) > len(frame.index) or row_labels_carried(frame) \
+            or isinstance(label.const, tuple) and len(frame.index) == 1:
+        raise ctx.todo("rows chosen by index label: the index is not data in Polars (keys "
+                       "holding the labels, one label per key, are ported)")
     kinds = {str: "str", int: "int"}
-    if kinds.get(type(label.const)) != frame.dtype(key):
+    if any(kinds.get(type(p)) != frame.dtype(k) for p, k in zip(parts, frame.index)):
         raise ctx.todo("a label of another type than the key column (or a key of unknown type)")
     picked = replace(frame, code=frame.code.method(
-        "filter", emit.binop(emit.col(key), "==", emit.lit(label.const))))
+        "filter", *(emit.binop(emit.col(k), "==", emit.lit(p)) for p, k in zip(parts, frame.index))))
     ctx.handover = True
     return PandasValue(to_pandas(picked).attr("loc").index(emit.lit(label.const)))
 
@@ -523,6 +530,40 @@ def _index_of(frame: Frame, ctx: RuleContext) -> Value:
                         kind="dt", index_of=frame)
     return replace(column_of(frame, key), name=None if frame.index_unnamed else key,
                    index_values=True)
+
+
+def index_level(owner: Value, level: Value) -> str | None:
+    """The key column of level `level` (a name or a position) of the index of `owner` (a
+    table or Series labelled by key columns), or None."""
+    frame = owner.frame if isinstance(owner, Column) else owner
+    if not isinstance(frame, Frame) or not frame.index or row_labels_carried(frame) \
+            or frame.index_unnamed or not isinstance(level, Opaque):
+        return None
+    keys = list(frame.index)
+    if isinstance(level.const, str) and keys.count(level.const) == 1:
+        return level.const
+    if type(level.const) is int and -len(keys) <= level.const < len(keys):
+        return keys[level.const]
+    return None
+
+
+@rule("frame.index.get_level_values")
+def index_get_level_values(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.index.get_level_values("k") -> the key column k, as pandas' Index of its values.
+
+    Handles: a table or Series labelled by one or more key columns (a groupby's keys,
+    set_index([...])), the level named or given by position: the key's values in the rows'
+    order, read as pandas' Index (by position, named by the level).
+    Caveats: the evaluator only calls this rule where index_level finds the level; row numbers
+    and carried labels take the plain path."""
+    owner = call.receiver
+    frame = owner.frame if isinstance(owner, Column) else owner
+    assert isinstance(frame, Frame)
+    key = index_level(owner, call.args[0])
+    if key is None:
+        raise ctx.todo("a level the index does not have (pandas raises KeyError)")
+    # pandas' Index of the level's values: the other levels are not labels of it
+    return replace(column_of(replace(frame, index=()), key), name=key, index_values=True)
 
 
 @rule("frame.index.assign")

@@ -652,6 +652,9 @@ class Evaluator:
         rounded = self.math_rounding(node)
         if rounded is not None:
             return rounded
+        levels = self.level_values(node)
+        if levels is not None:
+            return levels
         func = self.eval(node.func)
         if isinstance(func, Opaque) and not func.sites and isinstance(node.func, cst.Name):
             name = node.func.value
@@ -1019,6 +1022,24 @@ class Evaluator:
                 return self.generic(node)
             op = "~"  # `not` of one boolean value inside a lambda
         return self.dispatch("series.unary", PandasCall(operand, op, node=node), node)
+
+    def level_values(self, node: cst.Call) -> Value | None:
+        """`df.index.get_level_values("k")` of a table (or Series) labelled by key columns:
+        the key column (rules/selection.index_get_level_values); None for anything else, which
+        takes the plain path (df.index, then the method)."""
+        from porter.rules.selection import index_level
+        func = node.func
+        if not (isinstance(func, cst.Attribute) and func.attr.value == "get_level_values"
+                and isinstance(func.value, cst.Attribute) and func.value.attr.value == "index"
+                and len(node.args) == 1 and node.args[0].keyword is None
+                and not node.args[0].star):
+            return None
+        owner = self.eval(func.value.value)
+        level = self.eval(node.args[0].value)
+        if not isinstance(owner, (Frame, Column)) or index_level(owner, level) is None:
+            return None
+        return self.dispatch("frame.index.get_level_values",
+                             PandasCall(owner, "get_level_values", (level,), node=node), node)
 
     # -- rules ----------------------------------------------------------------------------------
     def regrouped(self, indexed: Indexed, node: cst.CSTNode) -> Value:
