@@ -496,9 +496,11 @@ def groupby(call: PandasCall, ctx: RuleContext) -> Value:
     frame = call.receiver
     assert isinstance(frame, Frame)
     ctx.reject_unknown(call, "by", "sort", "dropna", "as_index", "observed", "group_keys",
-                       positional=1)
-    by = call.arg("by", 0)
-    if isinstance(by, Column) and by.name is not None and by.code.text == emit.col(by.name).text:
+                       "level", positional=1)
+    by = call.arg("by", 0, None)
+    if call.has("level"):
+        keys = _levels_as_keys(call, frame, ctx)
+    elif isinstance(by, Column) and by.name is not None and by.code.text == emit.col(by.name).text:
         # a column of this very frame; a Series of another frame (or of other rows) is aligned
         # on the index by pandas, which has no expression form
         check_same_rows(by, frame)
@@ -522,7 +524,31 @@ def groupby(call: PandasCall, ctx: RuleContext) -> Value:
                    dropna=bool(call.const("dropna", None, True)),
                    as_index=bool(call.const("as_index", None, True)),
                    group_keys=bool(call.const("group_keys", None, True, kinds=(bool,))),
-                   key_list=isinstance(by, Opaque) and isinstance(by.const, list))
+                   key_list=isinstance(by, Opaque) and isinstance(by.const, list)
+                   or isinstance(call.const("level", None, None, kinds=(str, int, list)), list))
+
+
+def _levels_as_keys(call: PandasCall, frame: Frame, ctx: RuleContext) -> list[str]:
+    """groupby(level=...) of a table labelled by key columns, naming (or giving the positions
+    of) every level: the groups of those key columns, as groupby(by=keys) makes them (pandas
+    reads an index level's name as a key too)."""
+    from porter.rules.selection import index_level
+    if call.arg("by", 0, None) is not None:
+        raise ctx.todo("by= and level= together")
+    given = call.const("level", None, None, kinds=(str, int, list))
+    levels = given if isinstance(given, list) else [given]
+    keys: list[str] = []
+    for level in levels:
+        found = index_level(frame, Opaque(emit.lit(level), const=level))
+        if found is None or found in keys:
+            raise ctx.todo(f"a level the index does not have: {level!r}")
+        keys.append(found)
+    if set(keys) != set(frame.index):
+        # pandas leaves the other levels out of what it aggregates: Polars would sum them
+        raise ctx.todo("some of the levels only: group by the key columns and drop the others")
+    if call.const("as_index", None, True) is not True:
+        raise ctx.todo("as_index=False with level=")
+    return keys
 
 
 def _computed_key(call: PandasCall, frame: Frame, by: Column, ctx: RuleContext) -> Value:

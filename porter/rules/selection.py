@@ -566,6 +566,47 @@ def index_get_level_values(call: PandasCall, ctx: RuleContext) -> Value:
     return replace(column_of(replace(frame, index=()), key), name=key, index_values=True)
 
 
+@rule("frame.droplevel", "series.droplevel")
+def droplevel(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.droplevel("k") -> .drop("k"), on a table (or Series) labelled by several key columns.
+
+    Handles: levels named or given by position, one or a list; the rows stay as they are, the
+    other keys label them (no longer known to be distinct).
+    Caveats: axis=1 (levels of column labels), dropping every level (pandas raises), row
+    numbers and carried labels are TODOs."""
+    receiver = call.receiver
+    frame = receiver.frame if isinstance(receiver, Column) else receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "level", "axis", positional=1)
+    if call.const("axis", None, 0, kinds=(int, str)) not in (0, "index", "rows"):
+        raise ctx.todo("levels of the column labels (axis=1)")
+    given = call.const("level", 0, None, kinds=(str, int, list))
+    levels = given if isinstance(given, list) else [given]
+    keys = list(frame.index)
+    if len(keys) < 2 or row_labels_carried(frame) or frame.index_unnamed:
+        raise ctx.todo("an index of fewer than two named key columns")
+    dropped = []
+    for level in levels:
+        found = index_level(frame, Opaque(emit.lit(level), const=level))
+        if found is None or found in dropped:
+            raise ctx.todo(f"a level the index does not have: {level!r} (pandas raises)")
+        dropped.append(found)
+    if len(dropped) == len(keys):
+        raise ctx.todo("dropping every level (pandas raises ValueError)")
+    if isinstance(receiver, Column) and receiver.name in dropped:
+        raise ctx.todo("a Series named like a level it drops")
+    code = frame.code.method("drop", *dropped)
+    columns = None if frame.columns is None else tuple(c for c in frame.columns if c not in dropped)
+    result = derive(frame, code, same_rows=True, columns=columns,
+                    dtypes=tuple((c, t) for c, t in frame.dtypes if c not in dropped))
+    # the keys left may repeat: no longer a groupby's distinct, sorted labels
+    result = replace(result, index=tuple(k for k in keys if k not in dropped), grouped_rows=None,
+                     levels_as_met=False, levels_with_missing=False)
+    if isinstance(receiver, Column):
+        return replace(receiver, frame=result, sites=())
+    return result
+
+
 @rule("frame.index.assign")
 def frame_index_assign(call: PandasCall, ctx: RuleContext) -> Value:
     """df.index = <a column of df's rows> -> the index key column replaced, under its name.
