@@ -61,6 +61,8 @@ def getitem_column(call: PandasCall, ctx: RuleContext) -> Value:
     """
     frame = frame_of(call)
     key = call.args[0]
+    if frame.value_levels:
+        return _value_level(frame, key, ctx)
     if isinstance(key, Opaque) and not key.is_const:
         kind = "list" if _is_list_display(key.code.text) or key.pytype == "list" else None
         if key.pytype != "str" and (isinstance(key.node, cst.Name) or key.node is None
@@ -78,6 +80,22 @@ def getitem_column(call: PandasCall, ctx: RuleContext) -> Value:
             return derive(frame, code, same_rows=True, columns=None, dtypes=frame.dtypes,
                           column_pairs=())
     return column_by_key(frame, key, ctx)
+
+
+def _value_level(frame: Frame, key: Value, ctx: RuleContext) -> Value:
+    """pv["a"] of a pivot of several value columns: the table of a's columns, labelled by the
+    pivot's key values as pandas labels them (the first level of the columns taken): Polars'
+    columns "a_x" renamed "x", the index keys kept."""
+    if not (isinstance(key, Opaque) and isinstance(key.const, str)
+            and key.const in frame.value_levels):
+        raise ctx.todo("pandas' columns are two levels here (the value column, then the key's "
+                       "value): select one value column first")
+    prefix = emit.lit(key.const + "_").text
+    code = frame.code.method("select", *frame.index, emit.atom(
+        f"pl.selectors.starts_with({prefix})")).method("rename", emit.atom(
+            f"lambda c: c.removeprefix({prefix})"))
+    return derive(frame, code, same_rows=True, columns=None, value_levels=(),
+                  dtypes=tuple((c, t) for c, t in frame.dtypes if c in frame.index))
 
 
 # builtins and methods whose result is a list (or pandas Index) of the names they are given

@@ -1063,6 +1063,14 @@ class Evaluator:
             reason = entry.advice if entry is not None and entry.status == "todo" else (
                 "porter has no rule for this API yet")
             return self.todo(key, call, node, reason, entry=entry)
+        if key != "frame.getitem.column" and any(
+                isinstance(v, Frame) and v.value_levels
+                for v in (call.receiver, *call.args, *call.kwargs.values())):
+            # a pivot of several value columns: pandas' two levels of column labels, which
+            # only pv["value"] reads as porter holds them (rules/groupby._pivot_several_values)
+            return self.todo(key, call, node, "pandas' columns are two levels here (the value "
+                             "column, then the key's value): select one value column first",
+                             entry=entry)
         ctx = RuleContext(key, entry, entry.confidence, schema_lookup=self.services.schema_lookup,
                           evaluate=self.evaluate_with,
                           datetimes_possible=self.services.datetimes_possible,

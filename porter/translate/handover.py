@@ -197,7 +197,15 @@ def to_pandas(value: Value) -> Code:
             code = _labels(code, value)
             if value.index_unnamed and len(value.index) == 1:
                 code = code.method("rename_axis", None)  # describe's statistics: no name
-        if value.columns_name is not None:
+        if value.value_levels:
+            # a pivot of several value columns: Polars' "a_x" is pandas' (a, x), the value
+            # column, then the key's value (Index.map of pairs makes the two levels)
+            prefixes = emit.render(value.value_levels)
+            code = code.method("pipe", emit.atom(
+                "lambda frame: frame.set_axis(frame.columns.map(lambda c: next("
+                f"(v, c[len(v) + 1:]) for v in {prefixes} if c.startswith(v + \"_\"))), axis=1)"))
+            code = code.method("rename_axis", columns=[None, value.columns_name])
+        elif value.columns_name is not None:
             # a pivoted table's columns are named after its key (pandas keeps the name through
             # reset_index): stack, melt and print read it
             code = code.method("rename_axis", columns=value.columns_name)
