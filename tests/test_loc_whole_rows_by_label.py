@@ -55,3 +55,13 @@ def test_a_label_of_another_type_stays_pandas() -> None:
     result = convert(HEAD + body, data_dir=".")
     assert "frame.loc" in [s.key for s in result.todos], result.converted_text
     differential(HEAD + body, data_dir=".")
+
+
+@pytest.mark.parametrize("body", [
+    # without --data the key's type is not known: .at / .iat stay pandas, and stay .at / .iat
+    'result = gang.at["Zoë Harrow", "fleeces"]',
+    'result = gang.at["Owain Fell", "rate"] * 2',
+    'result = gang.iat[1, 2]',
+])
+def test_at_kept_on_pandas_keeps_its_accessor(body: str) -> None:
+    differential(HEAD + body + "\n")

@@ -444,7 +444,8 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
                 parts.append(source(element.slice))
         inner = ", ".join(parts)
         base = to_pandas(receiver).wrapped(emit.ATOM)
-        if isinstance(node.value, cst.Attribute) and node.value.attr.value in ("loc", "iloc", "ix") \
+        if isinstance(node.value, cst.Attribute) \
+                and node.value.attr.value in ("loc", "iloc", "ix", "at", "iat") \
                 and isinstance(receiver, (Frame, Column)):  # s.iloc[-1] is no s[-1] (a label)
             base = f"{base}.{node.value.attr.value}"
         return Code(f"{base}[{inner}]")
