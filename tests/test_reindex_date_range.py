@@ -134,3 +134,11 @@ def test_a_product_written_inside_the_reindex_matches_pandas() -> None:
             'result = kg.unstack("size").reset_index()\n')
     result = differential(PRODUCT + body)
     assert not result.todos, result.converted_text
+
+
+def test_a_product_given_to_a_table_pandas_made() -> None:
+    # groupby.describe stays pandas: its reindex is pandas code given pandas' MultiIndex
+    body = ('full = pd.MultiIndex.from_product([["b", "a", "q"], SIZES], names=["farm", "size"])\n'
+            'stats = df.groupby(["farm", "size"])["kg"].describe()\n'
+            'result = stats.reindex(full, fill_value=0).reset_index()\n')
+    differential(PRODUCT + body)
