@@ -207,7 +207,9 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
         if len(cols) == 1 and cols[0].dtype == "int" else None
     code = code.method("lazy")
     # counts (whole numbers), or their shares (floats), in every column but the keys
-    cells = None if has_values else (code.text, "float" if normalize is not None else "int")
+    # (of values: floats, a sum / min / max of a float column, a mean or median)
+    cells = (code.text, "float") if has_values else (
+        code.text, "float" if normalize is not None else "int")
     return Frame(code, columns=None, index=tuple(row_names), dtypes=dtypes,
                  labels_intact=False, int_labels_except=int_labels,
                  columns_name=col_names[0] if len(col_names) == 1 else None, number_cells=cells)

@@ -420,9 +420,19 @@ def frame_at(call: PandasCall, ctx: RuleContext) -> Value:
     if len(call.args) != 2:
         raise ctx.todo("one label and one column name: df.at[label, column]")
     rows, cols = call.args
-    if not (_one_label(rows) and isinstance(cols, Opaque) and isinstance(cols.const, str)):
+    if not ((_one_label(rows) or _label_read(rows, frame))
+            and isinstance(cols, Opaque) and isinstance(cols.const, str)):
         raise ctx.todo("one label and one column name written in the script")
     return _labelled_value(frame, rows, cols, ctx)
+
+
+def _label_read(value: Value, frame: Frame) -> bool:
+    """A label computed when the script runs (`top = t.index[0]`), of the type of the one key
+    column labelling `frame`: a Python value porter compares the key with."""
+    return isinstance(value, (Scalar, Opaque)) and not (isinstance(value, Opaque) and value.is_const) \
+        and not value.sites and len(frame.index) == 1 \
+        and {"str": "str", "text": "str", "int": "int"}.get(value.pytype or "") \
+        == frame.dtype(frame.index[0])
 
 
 def _label_tuple(value: Value) -> bool:
@@ -445,14 +455,21 @@ def _labelled_value(frame: Frame, label: Opaque, col: Opaque, ctx: RuleContext) 
                        "column holding the labels is ported)")
     key, name = frame.index[0], col.const
     kinds = {str: "str", int: "int"}
-    if kinds.get(type(label.const)) != frame.dtype(key):
+    computed = not (isinstance(label, Opaque) and label.is_const)
+    if not computed and kinds.get(type(label.const)) != frame.dtype(key):
         raise ctx.todo("a label of another type than the key column (or a key of unknown type)")
     if name == key or frame.columns is not None and name not in frame.columns:
         raise ctx.todo(f"{name!r} is not a column of the frame (pandas raises KeyError)")
     ctx.lower("the value is Python's: None for a missing value where pandas gives nan, an int "
               "where pandas gives numpy's int64; a label several rows hold raises where pandas "
               "gives a Series of their values", 0.9)
-    code = frame.code.method("filter", emit.binop(emit.col(key), "==", emit.lit(label.const))) \
+    wanted = emit.lit(label.const) if not computed else label.code
+    if computed and getattr(label, "pytype", None) == "text":
+        # pandas' text value, nan where it is missing (materialize.series_position): Polars
+        # compares no text with a float
+        wanted = emit.atom(f"pl.lit(next((None if v != v else v for v in [{label.code.text}])), "
+                           "dtype=pl.String)")
+    code = frame.code.method("filter", emit.binop(emit.col(key), "==", wanted)) \
         .method("select", name).method("collect").method("item")
     pytype = frame.dtype(name)
     return Scalar(code, pytype=pytype if pytype in ("int", "float", "str", "bool") else None)
