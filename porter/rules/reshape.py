@@ -355,6 +355,9 @@ def stack(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo("level= other than the columns' only level")
     if call.const("future_stack", None, True) is not True:
         raise ctx.todo("future_stack=False (pandas 2's stack, which drops missing cells)")
+    ctx.lower("each row's cells come in the order of unstack's columns, which pandas lays out "
+              "in the order a key's values first come where a value only rows with a missing "
+              "value in another key hold (series.unstack's caveat): sorted here", 0.95)
     values = "values"
     while values in (*keys, name, _STACK_ROW):
         values = f"_{values}"
