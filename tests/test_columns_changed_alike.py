@@ -42,3 +42,14 @@ def test_columns_changed_alike_match_pandas(body: str) -> None:
 ])
 def test_other_forms_still_run(body: str) -> None:
     differential(HEAD + body + "\nresult = grid\n")
+
+
+@pytest.mark.parametrize("body", [
+    # the names held in a module constant, or a constant and a list added together
+    'COUNTS = ["loaves", "kg"]\ngrid[COUNTS] = grid[COUNTS].fillna(0)',
+    'SOME = ["kg"]\ngrid[SOME + ["loaves"]] = grid[SOME + ["loaves"]].fillna(-1.5)',
+    'SOME = ["kg"]\nMORE = ["capacity"]\ngrid[SOME + MORE] = grid[SOME + MORE].clip(0, 20)',
+])
+def test_names_held_in_constants_match_pandas(body: str) -> None:
+    result = differential(HEAD + body + "\nresult = grid\n")
+    assert not [s for s in result.sites if s.status == "todo"], result.converted_text

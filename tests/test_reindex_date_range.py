@@ -111,3 +111,34 @@ def test_reindex_over_a_product_todo(body: str, key: str) -> None:
     result = convert(PRODUCT + body + "\n")
     assert key in [s.key for s in result.todos], result.converted_text
     differential(PRODUCT + body + "\n")  # what stays pandas still computes pandas' values
+
+
+@pytest.mark.parametrize("body", [
+    # a frame (two aggregates) reindexed: no rule, so pandas runs it, given pandas' MultiIndex
+    'full = pd.MultiIndex.from_product([["b", "a", "q"], SIZES], names=["farm", "size"])\n'
+    'agg = df.groupby(["farm", "size"]).agg(n=("n", "sum"), kg=("kg", "max"))\n'
+    'result = agg.reindex(full, fill_value=0).reset_index()',
+    'farms = sorted(df["farm"].dropna().unique())\n'
+    'full = pd.MultiIndex.from_product([farms, SIZES], names=["farm", "size"])\n'
+    'result = df.groupby(["farm", "size"])[["n", "kg"]].sum().reindex(full, fill_value=0)',
+])
+def test_a_product_given_to_pandas_is_pandas_multiindex(body: str) -> None:
+    differential(PRODUCT + body + "\n")
+
+
+def test_a_product_written_inside_the_reindex_matches_pandas() -> None:
+    body = ('farms = sorted(df["farm"].dropna().unique())\n'
+            'kg = df.groupby(["farm", "size"])["kg"].sum()\n'
+            'kg = kg.reindex(pd.MultiIndex.from_product([farms, SIZES], names=["farm", "size"]),\n'
+            '                fill_value=0)\n'
+            'result = kg.unstack("size").reset_index()\n')
+    result = differential(PRODUCT + body)
+    assert not result.todos, result.converted_text
+
+
+def test_a_product_given_to_a_table_pandas_made() -> None:
+    # groupby.describe stays pandas: its reindex is pandas code given pandas' MultiIndex
+    body = ('full = pd.MultiIndex.from_product([["b", "a", "q"], SIZES], names=["farm", "size"])\n'
+            'stats = df.groupby(["farm", "size"])["kg"].describe()\n'
+            'result = stats.reindex(full, fill_value=0).reset_index()\n')
+    differential(PRODUCT + body)

@@ -74,7 +74,7 @@ TODOS = [
     pytest.param('r = df.query("grade.str.startswith(\'A\')")', "frame.query", id="query with a method"),
     pytest.param('r = df.query("index > 2")', "frame.query", id="query on the index"),
     pytest.param('r = df.query("kg > 1", engine="python")', "frame.query", id="query engine"),
-    pytest.param("r = df.set_index(['grade', 'n'])", "frame.set_index", id="set_index"),
+    pytest.param("r = df.set_index(['grade', 'n'], drop=False)", "frame.set_index", id="set_index"),
 ]
 
 

@@ -667,7 +667,7 @@ def multiindex_from_product(call: PandasCall, ctx: RuleContext) -> Value:
     if not (isinstance(levels, (cst.List, cst.Tuple)) and len(levels.elements) == len(names)):
         raise ctx.todo("the levels written as a list, one per name")
     bound = _bound_name(call, ctx)
-    if not _only_reindexed(ctx.python_module, bound):
+    if not (_only_reindexed(ctx.python_module, bound) or _written_as_reindex_target(call, ctx)):
         raise ctx.todo("porter ports a MultiIndex made from a product only as the labels of a "
                        "reindex (s.reindex(it, fill_value=...)); here pandas' MultiIndex is used "
                        "otherwise")
@@ -681,6 +681,26 @@ def multiindex_from_product(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.lower("a level holding a missing value (nan in a list) stops the script: Polars "
               "cannot make a column of text and a float", 0.95)
     return Opaque(code, const=ProductLabels(code, tuple(names)))
+
+
+def _written_as_reindex_target(call: PandasCall, ctx: RuleContext) -> bool:
+    """Whether `call` is written as the labels of a reindex (`s.reindex(pd.MultiIndex.
+    from_product(...), ...)`) and nowhere else in the script."""
+    module = ctx.python_module
+    if not isinstance(module, ast.Module) or call.node is None:
+        return False
+    text = cst.Module([]).code_for_node(call.node)
+    try:
+        wanted = ast.unparse(ast.parse(text.strip(), mode="eval").body)
+    except SyntaxError:
+        return False
+    targets = sum(1 for each in ast.walk(module)
+                  if isinstance(each, ast.Call) and isinstance(each.func, ast.Attribute)
+                  and each.func.attr == "reindex" and len(each.args) == 1
+                  and ast.unparse(each.args[0]) == wanted)
+    written = sum(1 for each in ast.walk(module)
+                  if isinstance(each, ast.Call) and ast.unparse(each) == wanted)
+    return targets >= 1 and targets == written
 
 
 def _bound_name(call: PandasCall, ctx: RuleContext) -> str | None:

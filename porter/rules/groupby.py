@@ -510,9 +510,11 @@ def groupby(call: PandasCall, ctx: RuleContext) -> Value:
     frame = call.receiver
     assert isinstance(frame, Frame)
     ctx.reject_unknown(call, "by", "sort", "dropna", "as_index", "observed", "group_keys",
-                       positional=1)
-    by = call.arg("by", 0)
-    if isinstance(by, Column) and by.name is not None and by.code.text == emit.col(by.name).text:
+                       "level", positional=1)
+    by = call.arg("by", 0, None)
+    if call.has("level"):
+        keys = _levels_as_keys(call, frame, ctx)
+    elif isinstance(by, Column) and by.name is not None and by.code.text == emit.col(by.name).text:
         # a column of this very frame; a Series of another frame (or of other rows) is aligned
         # on the index by pandas, which has no expression form
         check_same_rows(by, frame)
@@ -536,7 +538,31 @@ def groupby(call: PandasCall, ctx: RuleContext) -> Value:
                    dropna=bool(call.const("dropna", None, True)),
                    as_index=bool(call.const("as_index", None, True)),
                    group_keys=bool(call.const("group_keys", None, True, kinds=(bool,))),
-                   key_list=isinstance(by, Opaque) and isinstance(by.const, list))
+                   key_list=isinstance(by, Opaque) and isinstance(by.const, list)
+                   or isinstance(call.const("level", None, None, kinds=(str, int, list)), list))
+
+
+def _levels_as_keys(call: PandasCall, frame: Frame, ctx: RuleContext) -> list[str]:
+    """groupby(level=...) of a table labelled by key columns, naming (or giving the positions
+    of) every level: the groups of those key columns, as groupby(by=keys) makes them (pandas
+    reads an index level's name as a key too)."""
+    from porter.rules.selection import index_level
+    if call.arg("by", 0, None) is not None:
+        raise ctx.todo("by= and level= together")
+    given = call.const("level", None, None, kinds=(str, int, list))
+    levels = given if isinstance(given, list) else [given]
+    keys: list[str] = []
+    for level in levels:
+        found = index_level(frame, Opaque(emit.lit(level), const=level))
+        if found is None or found in keys:
+            raise ctx.todo(f"a level the index does not have: {level!r}")
+        keys.append(found)
+    if set(keys) != set(frame.index):
+        # pandas leaves the other levels out of what it aggregates: Polars would sum them
+        raise ctx.todo("some of the levels only: group by the key columns and drop the others")
+    if call.const("as_index", None, True) is not True:
+        raise ctx.todo("as_index=False with level=")
+    return keys
 
 
 @rule("series.groupby")
@@ -2074,7 +2100,7 @@ def _check_columns_key(frame: Frame, columns: str) -> None:
                           "with its values (Timestamps, True/False), Polars with their text")
 
 
-def pivot_sorted(code: Code, on: str, keys: list[str], values: str, fill: Any,
+def pivot_sorted(code: Code, on: str, keys: list[str], values: str | list[str], fill: Any,
                  float_when_missing: bool) -> Code:
     """The groups (one row per combination) collected and pivoted as pandas lays the table
     out: the new columns in the order of their values (the pivot meets them sorted), the rows
@@ -2135,6 +2161,8 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
         columns = columns[0]
     if columns is None and not call.has("columns", 2):
         return _pivot_without_columns(call, frame, index, values, ctx)
+    if isinstance(values, (list, tuple)) and len(values) > 1 and isinstance(columns, str):
+        return _pivot_several_values(call, frame, index, columns, list(values), ctx)
     if isinstance(values, (list, tuple)) and len(values) == 1:
         raise Unsupported("values given as a list: pandas keeps two levels of column labels")
     if not isinstance(columns, str) or not isinstance(values, str):
@@ -2215,6 +2243,63 @@ def _pivot_margins(table: Code, frame: Frame, keys: list[str], columns: str, val
 
 
 _PIVOT_ROW_FUNCTIONS = ("sum", "mean", "median", "min", "max", "count")
+
+
+def _pivot_several_values(call: PandasCall, frame: Frame, index: Any, on: str,
+                          values: list[str], ctx: RuleContext) -> Value:
+    """df.pivot_table(index=keys, columns=k, values=[a, b], aggfunc="sum" or {a: .., b: ..},
+    fill_value=0): the groups of keys and k aggregated, pivoted on k with every value column
+    (Polars names the new columns "a_x": the value column, then the key's value). pandas
+    labels them by two levels, (a, x), sorted (sort=True): the value columns in sorted order,
+    each with the key's values sorted; that is the order here too. The frame carries the value
+    columns (value_levels): df["a"] is the table of a's columns, handed to pandas it gets its
+    two levels back; any other use keeps it on pandas.
+
+    Only sums and counts with a fill_value: neither is ever missing for a group, so pandas
+    drops no row or column (dropna=True) and fill_value fills the combinations no row has."""
+    keys = [index] if isinstance(index, str) else list(index or [])
+    if not keys or not all(isinstance(k, str) for k in keys) or len(set(keys)) != len(keys):
+        raise Unsupported("a pivot without index keys")
+    if not all(isinstance(v, str) for v in values) or len(set(values)) != len(values) \
+            or set(values) & {*keys, on}:
+        raise Unsupported("values other than distinct column names apart from the keys")
+    if any(other.startswith(v + "_") for v in values for other in (*values, *keys)):
+        # the value's columns are found by the prefix "<value>_" of their names
+        raise Unsupported("a value column whose name with '_' begins another column's name")
+    if call.const("margins", None, False) or not call.const("dropna", None, True) \
+            or not call.const("sort", None, True):
+        raise Unsupported("margins, dropna=False or sort=False")
+    if call.const("observed", None, True) is not True and not all(
+            frame.dtype(k) in ("str", "int", "float", "bool", "date", "datetime")
+            for k in (*keys, on)):
+        raise Unsupported("observed=False keeps the unused categories of a category key")
+    if frame.dtype(on) != "str":
+        raise Unsupported("a columns key that is not text: pandas labels the columns with its "
+                          "values, Polars with their text")
+    aggfunc = call.const("aggfunc", 3, "mean", kinds=(str, dict))
+    hows = aggfunc if isinstance(aggfunc, dict) else {v: aggfunc for v in values}
+    if set(hows) != set(values) or not all(h in ("sum", "count") for h in hows.values()):
+        raise Unsupported("several value columns: sums and counts only (a dict naming each "
+                          "value column, or one of them for all)")
+    fill = call.const("fill_value", 4, None)
+    if fill is None or isinstance(fill, bool) or not isinstance(fill, (int, float)):
+        raise Unsupported("several value columns without a number as fill_value: pandas makes "
+                          "the cells of a combination no row has missing (integers float)")
+    if frame.columns is None or not set((*keys, on, *values)) <= set(frame.columns):
+        raise Unsupported("columns porter does not know in the frame (run with --data)")
+    for v in values:
+        if hows[v] == "sum" and frame.dtype(v) not in ("int", "float"):
+            raise Unsupported(f"the sum of {v!r}, not known to be numbers")
+    ordered = sorted(values)
+    groups = [*keys, on]
+    float32 = float32_possible(ctx)
+    exprs = [agg_expr(emit.col(v), hows[v], frame.dtype(v), float32=float32) for v in ordered]
+    code = agg_with_sums(frame.code.method("drop_nulls", groups).method("group_by", groups),
+                         *exprs)
+    code = pivot_sorted(code, on, keys, ordered, fill, False)
+    return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False,
+                 columns_name=on, value_levels=tuple(ordered),
+                 dtypes=tuple((k, frame.dtype(k)) for k in keys if frame.dtype(k) is not None))
 
 
 def _pivot_without_columns(call: PandasCall, frame: Frame, index: Any, values: Any,

@@ -19,6 +19,7 @@ from porter.rules import rule
 from porter.translate import handover
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, floats_where_missing, nullable_mark,
+    labelled_frame, row_labels_carried,
 )
 from porter.translate.values import NOT_NULLABLE, Column, Frame, FrameList, Opaque, Scalar, Value
 
@@ -100,6 +101,10 @@ class _Side:
 
 def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
     right = args.arg("right")
+    from porter.translate.values import Indexed
+    if isinstance(right, Indexed) and not right.grouped:
+        # read_csv(index_col=k) / set_index(k): the table labelled by k, its key column first
+        right = labelled_frame(right.frame, right.key)
     for side, value in (("left", left), ("right", right)):
         if not isinstance(value, Frame):
             raise ctx.todo(f"the {side} side is not a frame porter tracks: make it a "
@@ -107,6 +112,15 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(left, Frame) and isinstance(right, Frame)
     indicator = _indicator(args, ctx)
     validate = _validate(args, ctx)
+    if args.const("left_index", None, False) and args.const("right_index", None, False) \
+            and _labelled_alike(left, right) \
+            and not any(args.has(k) for k in ("on", "left_on", "right_on")):
+        # both frames labelled by the same key columns: pandas joins on the labels exactly as
+        # it merges on=those keys (the same rows, order and index), which porter ports
+        keys: Any = list(left.index) if len(left.index) > 1 else left.index[0]
+        kwargs = {k: v for k, v in args.kwargs.items() if k not in ("left_index", "right_index")}
+        kwargs["on"] = Opaque(emit.lit(keys), const=keys)
+        args = PandasCall(args.receiver, args.name, (), kwargs, args.node)
     if args.const("left_index", None, False) or args.const("right_index", None, False):
         raise ctx.todo("left_index/right_index join on row labels: make the labels a column "
                        "(with_row_index where the frame was made) and join on it")
@@ -235,6 +249,14 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
 
 
 _SIDE_MARKS = ("_in_left", "_in_right")
+
+
+def _labelled_alike(left: Frame, right: Frame) -> bool:
+    """Both frames labelled by the same named key columns (set_index, index_col=, a groupby's
+    keys), neither by row numbers."""
+    return bool(left.index) and left.index == right.index \
+        and not left.index_unnamed and not right.index_unnamed \
+        and not row_labels_carried(left) and not row_labels_carried(right)
 
 
 def _float_where_missing(code: Code, ints: Sequence[str]) -> Code:

@@ -481,6 +481,16 @@ def frame_fillna(call: PandasCall, ctx: RuleContext) -> Value:
             raise Unsupported("a dict or list of fill values that are not all constants")
         return _fill_each_column(frame, node, ctx)
     complete = frame.columns is not None and len(frame.dtypes) == len(frame.columns)
+    from porter.translate.context import number_cells
+    pivoted, cells = number_cells(frame)
+    if pivoted and cells == "float" and frame.index and isinstance(value, Opaque) \
+            and type(value.const) in (int, float) and not _is_nan(value.const):
+        # a pivoted table of float cells (crosstab with values, unstack): every column but
+        # the keys holds numbers, so the fill is theirs alone; still a table of float cells
+        cells_code = emit.pl("exclude", *frame.index)
+        code = frame.code.method("with_columns", cells_code.method("fill_null", value.const)
+                                 .method("fill_nan", value.const))
+        return replace(derive(frame, code, same_rows=True), number_cells=(code.text, "float"))
     if isinstance(value, Opaque) and _is_nan(value.const):
         return derive(frame, frame.code, same_rows=True)  # pandas fills NaN with NaN: nothing
     if isinstance(value, Opaque) and value.is_const and not isinstance(value.const, (dict, list)):

@@ -858,6 +858,11 @@ def round_(call: PandasCall, ctx: RuleContext) -> Value:
     else:
         code = receiver.code.method(
             "with_columns", without_index(emit.atom("pl.selectors.float()"), receiver).method("round", decimals))
+    from porter.translate.context import number_cells
+    pivoted, cells = number_cells(receiver)
+    if pivoted:
+        # the cells of a pivoted table stay numbers of their type: still a table of them
+        return replace(derive(receiver, code, same_rows=True), number_cells=(code.text, cells))
     return derive(receiver, code, same_rows=True)
 
 

@@ -41,7 +41,7 @@ from porter.rules.groupby import (
 from porter.rules.legacy import modern_offset
 from porter.rules.ops import float32_possible
 from porter.translate import handover
-from porter.translate.context import PandasCall, RuleContext, Unsupported, column_names, derive
+from porter.translate.context import PandasCall, RuleContext, Unsupported, column_names, derive, labelled_frame
 from porter.translate.values import (
     Column, Frame, Grouped, Indexed, Opaque, Resampled, TimeGrouperSpec, Value, fresh_token,
 )
@@ -300,6 +300,14 @@ def set_index(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(frame, Frame)
     ctx.reject_unknown(call, "keys", "drop", "append", "verify_integrity", positional=1)
     key = call.const("keys", 0, None)
+    if isinstance(key, list) and len(key) > 1 and all(isinstance(k, str) for k in key) \
+            and len(set(key)) == len(key) and call.const("drop", None, True) is True \
+            and call.const("append", None, False) is False \
+            and call.const("verify_integrity", None, False) is False \
+            and not frame.index and frame.columns is not None and set(key) <= set(frame.columns):
+        # set_index(["a", "b"]): the table labelled by both keys, held first as its index
+        # (as a groupby's keys are; not known to be distinct nor sorted)
+        return labelled_frame(frame, tuple(key))
     if not isinstance(key, str):
         raise ctx.todo("keep the key as a column; select or filter on it instead of index "
                        "labels (porter ports one column as the labels, for resample)")

@@ -208,7 +208,9 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
         if len(cols) == 1 and cols[0].dtype == "int" else None
     code = code.method("lazy")
     # counts (whole numbers), or their shares (floats), in every column but the keys
-    cells = None if has_values else (code.text, "float" if normalize is not None else "int")
+    # (of values: floats, a sum / min / max of a float column, a mean or median)
+    cells = (code.text, "float") if has_values else (
+        code.text, "float" if normalize is not None else "int")
     return Frame(code, columns=None, index=tuple(row_names), dtypes=dtypes,
                  labels_intact=False, int_labels_except=int_labels,
                  columns_name=col_names[0] if len(col_names) == 1 else None, number_cells=cells)
@@ -318,7 +320,54 @@ def unstack(call: PandasCall, ctx: RuleContext) -> Value:
         "int" if fill is not None else None)
     return Frame(code, columns=None, index=tuple(rest), dtypes=dtypes,
                  labels_intact=False, int_labels_except=int_labels, columns_name=on,
-                 number_cells=(code.text, kind))
+                 number_cells=(code.text, kind), columns_kind=frame.dtype(on))
+
+
+_STACK_ROW = "__stack_row"
+
+
+@rule("frame.stack")
+def stack(call: PandasCall, ctx: RuleContext) -> Value:
+    """pivoted.stack() of a table unstack made (nothing done to it since) -> the cells
+    unpivoted (LazyFrame.unpivot), row by row, each row's cells in the columns' order.
+
+    pandas 3 stacks every cell, missing ones too (future_stack), row by row in the table's
+    order, the columns in theirs: unpivot lays the cells out column by column, so a stable
+    sort by the row number puts them row by row. The result is a Series labelled by the row
+    keys and the columns' key, without a name.
+    Handles: a pivot on a text key (its values are the column labels pandas brings back).
+    Caveats: a pivot on a key of another type (Polars named the columns by their text), a
+    table changed since the unstack, level= other than the last, and the older dropna= /
+    sort= are TODOs."""
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "level", "future_stack", positional=1)
+    from porter.translate.context import number_cells
+    pivoted, kind = number_cells(frame)
+    name = frame.columns_name
+    keys = list(frame.index)
+    if not pivoted or name is None or not keys or frame.columns_kind not in ("str",) \
+            or frame.column_pairs or frame.value_levels or name in keys:
+        raise ctx.todo("a table other than one unstack made on a text key, unchanged since: "
+                       "unpivot the columns and sort by row then column position")
+    if call.const("level", 0, -1, kinds=(int, str)) not in (-1, name):
+        raise ctx.todo("level= other than the columns' only level")
+    if call.const("future_stack", None, True) is not True:
+        raise ctx.todo("future_stack=False (pandas 2's stack, which drops missing cells)")
+    ctx.lower("each row's cells come in the order of unstack's columns, which pandas lays out "
+              "in the order a key's values first come where a value only rows with a missing "
+              "value in another key hold (series.unstack's caveat): sorted here", 0.95)
+    values = "values"
+    while values in (*keys, name, _STACK_ROW):
+        values = f"_{values}"
+    code = frame.code.method("with_row_index", _STACK_ROW).method(
+        "unpivot", index=[_STACK_ROW, *keys], variable_name=name, value_name=values).method(
+        "sort", _STACK_ROW, maintain_order=True).method("drop", _STACK_ROW)
+    dtypes = tuple((k, frame.dtype(k)) for k in keys if frame.dtype(k) is not None)
+    dtypes += ((name, "str"),) + (((values, kind),) if kind is not None else ())
+    result = Frame(code, columns=(*keys, name, values), index=(*keys, name), dtypes=dtypes,
+                   labels_intact=False)
+    return Column(emit.col(values), frame=result, name=None, dtype=kind)
 
 
 # -- melt ---------------------------------------------------------------------------------------

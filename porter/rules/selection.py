@@ -61,6 +61,8 @@ def getitem_column(call: PandasCall, ctx: RuleContext) -> Value:
     """
     frame = frame_of(call)
     key = call.args[0]
+    if frame.value_levels:
+        return _value_level(frame, key, ctx)
     if isinstance(key, Opaque) and not key.is_const:
         kind = "list" if _is_list_display(key.code.text) or key.pytype == "list" else None
         if key.pytype != "str" and (isinstance(key.node, cst.Name) or key.node is None
@@ -78,6 +80,22 @@ def getitem_column(call: PandasCall, ctx: RuleContext) -> Value:
             return derive(frame, code, same_rows=True, columns=None, dtypes=frame.dtypes,
                           column_pairs=())
     return column_by_key(frame, key, ctx)
+
+
+def _value_level(frame: Frame, key: Value, ctx: RuleContext) -> Value:
+    """pv["a"] of a pivot of several value columns: the table of a's columns, labelled by the
+    pivot's key values as pandas labels them (the first level of the columns taken): Polars'
+    columns "a_x" renamed "x", the index keys kept."""
+    if not (isinstance(key, Opaque) and isinstance(key.const, str)
+            and key.const in frame.value_levels):
+        raise ctx.todo("pandas' columns are two levels here (the value column, then the key's "
+                       "value): select one value column first")
+    prefix = emit.lit(key.const + "_").text
+    code = frame.code.method("select", *frame.index, emit.atom(
+        f"pl.selectors.starts_with({prefix})")).method("rename", emit.atom(
+            f"lambda c: c.removeprefix({prefix})"))
+    return derive(frame, code, same_rows=True, columns=None, value_levels=(),
+                  dtypes=tuple((c, t) for c, t in frame.dtypes if c in frame.index))
 
 
 # builtins and methods whose result is a list (or pandas Index) of the names they are given
@@ -316,8 +334,8 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     row (pl.col("c").get(the first row holding the extreme)); df.loc["label"] of a table
     labelled by one key column: the rows holding the label picked in Polars, handed to pandas,
     which gives its row Series (one row), a frame (several) or KeyError (none), as on the table.
-    Caveats: other row labels (df.loc[[...]], df.loc["a":"c"], labels of several keys, row
-    numbers after a filter) are TODOs: the index is not data in Polars.
+    Caveats: other row labels (df.loc[[...]], df.loc["a":"c"], row numbers after a filter) are
+    TODOs; a tuple of labels picks the rows of a table labelled by as many key columns: the index is not data in Polars.
     """
     frame = frame_of(call)
     rows = call.args[0]
@@ -349,7 +367,8 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
         frame = derive(frame, frame.code.method("filter", ctx.expr(rows, frame)), same_rows=False)
     elif _one_label(rows) and isinstance(cols, Opaque) and isinstance(cols.const, str):
         return _labelled_value(frame, rows, cols, ctx)  # df.loc["label", "c"], as df.at
-    elif _one_label(rows) and (cols is None or isinstance(cols, Opaque) and cols.const == slice(None)):
+    elif (_one_label(rows) or _label_tuple(rows)) \
+            and (cols is None or isinstance(cols, Opaque) and cols.const == slice(None)):
         assert isinstance(rows, Opaque)
         return _rows_by_label(frame, rows, ctx)  # df.loc["label"]: its row, pandas' Series
     elif not (isinstance(rows, Opaque) and rows.const == slice(None)):
@@ -404,9 +423,25 @@ def frame_at(call: PandasCall, ctx: RuleContext) -> Value:
     if len(call.args) != 2:
         raise ctx.todo("one label and one column name: df.at[label, column]")
     rows, cols = call.args
-    if not (_one_label(rows) and isinstance(cols, Opaque) and isinstance(cols.const, str)):
+    if not ((_one_label(rows) or _label_read(rows, frame))
+            and isinstance(cols, Opaque) and isinstance(cols.const, str)):
         raise ctx.todo("one label and one column name written in the script")
     return _labelled_value(frame, rows, cols, ctx)
+
+
+def _label_read(value: Value, frame: Frame) -> bool:
+    """A label computed when the script runs (`top = t.index[0]`), of the type of the one key
+    column labelling `frame`: a Python value porter compares the key with."""
+    return isinstance(value, (Scalar, Opaque)) and not (isinstance(value, Opaque) and value.is_const) \
+        and not value.sites and len(frame.index) == 1 \
+        and {"str": "str", "text": "str", "int": "int"}.get(value.pytype or "") \
+        == frame.dtype(frame.index[0])
+
+
+def _label_tuple(value: Value) -> bool:
+    """A tuple of labels written out, one per level (df.loc[("a", 2)])."""
+    return isinstance(value, Opaque) and isinstance(value.const, tuple) and bool(value.const) \
+        and all(isinstance(p, (str, int)) and not isinstance(p, bool) for p in value.const)
 
 
 def _one_label(value: Value) -> bool:
@@ -423,14 +458,21 @@ def _labelled_value(frame: Frame, label: Opaque, col: Opaque, ctx: RuleContext) 
                        "column holding the labels is ported)")
     key, name = frame.index[0], col.const
     kinds = {str: "str", int: "int"}
-    if kinds.get(type(label.const)) != frame.dtype(key):
+    computed = not (isinstance(label, Opaque) and label.is_const)
+    if not computed and kinds.get(type(label.const)) != frame.dtype(key):
         raise ctx.todo("a label of another type than the key column (or a key of unknown type)")
     if name == key or frame.columns is not None and name not in frame.columns:
         raise ctx.todo(f"{name!r} is not a column of the frame (pandas raises KeyError)")
     ctx.lower("the value is Python's: None for a missing value where pandas gives nan, an int "
               "where pandas gives numpy's int64; a label several rows hold raises where pandas "
               "gives a Series of their values", 0.9)
-    code = frame.code.method("filter", emit.binop(emit.col(key), "==", emit.lit(label.const))) \
+    wanted = emit.lit(label.const) if not computed else label.code
+    if computed and getattr(label, "pytype", None) == "text":
+        # pandas' text value, nan where it is missing (materialize.series_position): Polars
+        # compares no text with a float
+        wanted = emit.atom(f"pl.lit(next((None if v != v else v for v in [{label.code.text}])), "
+                           "dtype=pl.String)")
+    code = frame.code.method("filter", emit.binop(emit.col(key), "==", wanted)) \
         .method("select", name).method("collect").method("item")
     pytype = frame.dtype(name)
     return Scalar(code, pytype=pytype if pytype in ("int", "float", "str", "bool") else None)
@@ -438,22 +480,24 @@ def _labelled_value(frame: Frame, label: Opaque, col: Opaque, ctx: RuleContext) 
 
 def _rows_by_label(frame: Frame, label: Opaque, ctx: RuleContext) -> Value:
     """df.loc["label"] of a table labelled by one key column (set_index, read_csv(index_col=),
-    a groupby's keys): the rows whose key is the label, picked in Polars (a filter, so only
-    they are collected), handed to pandas with the key as their index and read there with
-    .loc["label"]. pandas decides what it gives as on the whole table: the row Series (values
-    typed as pandas types a row of that frame, named by the label) when one row holds the
-    label, a frame of those rows in their order when several do (porter cannot tell which
-    from the script: a key read from a file may repeat), KeyError when none does."""
-    if len(frame.index) != 1 or row_labels_carried(frame):
-        raise ctx.todo("rows chosen by index label: the index is not data in Polars (one key "
-                       "column holding the labels is ported)")
-    key = frame.index[0]
+    a groupby's keys), or df.loc[("a", "b")] of one labelled by as many: the rows whose keys
+    are the labels, picked in Polars (a filter, so only they are collected), handed to pandas
+    with the keys as their index and read there with .loc[label]. pandas decides what it gives
+    as on the whole table: the row Series (values typed as pandas types a row of that frame,
+    named by the label) when one row holds the label, a frame of those rows in their order
+    when several do (porter cannot tell which from the script: a key read from a file may
+    repeat), KeyError when none does."""
+    parts = label.const if isinstance(label.const, tuple) else (label.const,)
+    if not frame.index or len(parts) > len(frame.index) or row_labels_carried(frame) \
+            or isinstance(label.const, tuple) and len(frame.index) == 1:
+        raise ctx.todo("rows chosen by index label: the index is not data in Polars (keys "
+                       "holding the labels, one label per key, are ported)")
     kinds = {str: "str", int: "int"}
-    if kinds.get(type(label.const)) != frame.dtype(key):
+    if any(kinds.get(type(p)) != frame.dtype(k) for p, k in zip(parts, frame.index)):
         raise ctx.todo("a label of another type than the key column (or a key of unknown type)")
-    picked = derive(frame, frame.code.method("filter", emit.binop(emit.col(key), "==",
-                                                                 emit.lit(label.const))),
-                    same_rows=False)
+    picked = derive(frame, frame.code.method("filter", *(
+        emit.binop(emit.col(k), "==", emit.lit(p)) for p, k in zip(parts, frame.index))),
+        same_rows=False)
     ctx.handover = True
     chain = to_pandas(picked)
     step = f".loc[{emit.lit(label.const).text}]"
@@ -561,6 +605,81 @@ def index_level_values(call: PandasCall, ctx: RuleContext) -> Value:
     else:
         raise ctx.todo(f"level {level!r} is not a level of the index (pandas raises)")
     return replace(column_of(frame, key), index_values=True)
+
+
+def index_level(owner: Value, level: Value) -> str | None:
+    """The key column of level `level` (a name or a position) of the index of `owner` (a
+    table or Series labelled by key columns), or None."""
+    frame = owner.frame if isinstance(owner, Column) else owner
+    if not isinstance(frame, Frame) or not frame.index or row_labels_carried(frame) \
+            or frame.index_unnamed or not isinstance(level, Opaque):
+        return None
+    keys = list(frame.index)
+    if isinstance(level.const, str) and keys.count(level.const) == 1:
+        return level.const
+    if type(level.const) is int and -len(keys) <= level.const < len(keys):
+        return keys[level.const]
+    return None
+
+
+@rule("frame.index.get_level_values")
+def index_get_level_values(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.index.get_level_values("k") -> the key column k, as pandas' Index of its values.
+
+    Handles: a table or Series labelled by one or more key columns (a groupby's keys,
+    set_index([...])), the level named or given by position: the key's values in the rows'
+    order, read as pandas' Index (by position, named by the level).
+    Caveats: the evaluator only calls this rule where index_level finds the level; row numbers
+    and carried labels take the plain path."""
+    owner = call.receiver
+    frame = owner.frame if isinstance(owner, Column) else owner
+    assert isinstance(frame, Frame)
+    key = index_level(owner, call.args[0])
+    if key is None:
+        raise ctx.todo("a level the index does not have (pandas raises KeyError)")
+    # pandas' Index of the level's values: the other levels are not labels of it
+    return replace(column_of(replace(frame, index=()), key), name=key, index_values=True)
+
+
+@rule("frame.droplevel")
+def droplevel(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.droplevel("k") -> .drop("k"), on a table (or Series) labelled by several key columns.
+
+    Handles: levels named or given by position, one or a list; the rows stay as they are, the
+    other keys label them (no longer known to be distinct).
+    Caveats: axis=1 (levels of column labels), dropping every level (pandas raises), row
+    numbers and carried labels are TODOs."""
+    receiver = call.receiver
+    frame = receiver.frame if isinstance(receiver, Column) else receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "level", "axis", positional=1)
+    if call.const("axis", None, 0, kinds=(int, str)) not in (0, "index", "rows"):
+        raise ctx.todo("levels of the column labels (axis=1)")
+    given = call.const("level", 0, None, kinds=(str, int, list))
+    levels = given if isinstance(given, list) else [given]
+    keys = list(frame.index)
+    if len(keys) < 2 or row_labels_carried(frame) or frame.index_unnamed:
+        raise ctx.todo("an index of fewer than two named key columns")
+    dropped = []
+    for level in levels:
+        found = index_level(frame, Opaque(emit.lit(level), const=level))
+        if found is None or found in dropped:
+            raise ctx.todo(f"a level the index does not have: {level!r} (pandas raises)")
+        dropped.append(found)
+    if len(dropped) == len(keys):
+        raise ctx.todo("dropping every level (pandas raises ValueError)")
+    if isinstance(receiver, Column) and receiver.name in dropped:
+        raise ctx.todo("a Series named like a level it drops")
+    code = frame.code.method("drop", *dropped)
+    columns = None if frame.columns is None else tuple(c for c in frame.columns if c not in dropped)
+    result = derive(frame, code, same_rows=True, columns=columns,
+                    dtypes=tuple((c, t) for c, t in frame.dtypes if c not in dropped))
+    # the keys left may repeat: no longer a groupby's distinct, sorted labels
+    result = replace(result, index=tuple(k for k in keys if k not in dropped), grouped_rows=None,
+                     levels_as_met=False, levels_with_missing=False)
+    if isinstance(receiver, Column):
+        return replace(receiver, frame=result, sites=())
+    return result
 
 
 @rule("frame.index.assign")

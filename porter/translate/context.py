@@ -299,19 +299,21 @@ def with_row_labels(frame: Frame) -> Frame:
                    dtypes=(*frame.dtypes, (ROW_LABELS, "int")))
 
 
-def labelled_frame(frame: Frame, key: str) -> Frame:
+def labelled_frame(frame: Frame, key: str | tuple[str, ...]) -> Frame:
     """`frame` after set_index(key) (or read_csv(index_col=key)), for the calls that read it as
-    a table labelled by `key`: the key column first, held as pandas' index (as a groupby's
-    keys are), its labels neither known to be distinct nor sorted (grouped_rows unset)."""
+    a table labelled by `key` (or by several keys, set_index([...])): the key columns first,
+    held as pandas' index (as a groupby's keys are), its labels neither known to be distinct
+    nor sorted (grouped_rows unset)."""
+    keys = (key,) if isinstance(key, str) else tuple(key)
     code = frame.code
     columns = frame.columns
     if columns is None and not code.text.isidentifier():
         # a name bound to the labelled frame holds the key first already (engine.bind)
-        code = code.method("select", key, emit.pl("exclude", key))
-    elif columns is not None and columns[0] != key:
-        columns = (key, *(c for c in columns if c != key))
+        code = code.method("select", *keys, emit.pl("exclude", *keys))
+    elif columns is not None and columns[:len(keys)] != keys:
+        columns = (*keys, *(c for c in columns if c not in keys))
         code = code.method("select", *columns)
-    return replace(frame, code=code, columns=columns, index=(key,), index_unnamed=False,
+    return replace(frame, code=code, columns=columns, index=keys, index_unnamed=False,
                    labels_intact=False, grouped_rows=None, number_cells=None)
 
 

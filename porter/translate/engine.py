@@ -1488,7 +1488,7 @@ class _Walker:
             result = self.set_columns(stmt, several, env, evaluator, indent)
             if result is not None:
                 return result
-        split = _columns_changed_alike(stmt)
+        split = _columns_changed_alike(stmt, evaluator)
         if split is not None:
             result = self.set_columns_alike(stmt, *split, env, evaluator, indent)
             if result is not None:
@@ -2524,7 +2524,7 @@ def _root_and_path(node: cst.BaseExpression) -> tuple[str | None, str]:
 _COLUMNWISE = frozenset({"fillna", "round", "abs", "clip", "astype"})
 
 
-def _columns_changed_alike(stmt: cst.BaseSmallStatement
+def _columns_changed_alike(stmt: cst.BaseSmallStatement, evaluator: Evaluator | None = None
                            ) -> tuple[cst.Name, list[str], list[cst.BaseExpression]] | None:
     """`df[["a", "b"]] = df[["a", "b"]].fillna(0)` (the same names on both sides, a method of
     _COLUMNWISE whose arguments are constants): the frame's name, the columns, and per column
@@ -2532,14 +2532,14 @@ def _columns_changed_alike(stmt: cst.BaseSmallStatement
     if not isinstance(stmt, cst.Assign) or len(stmt.targets) != 1:
         return None
     target, value = stmt.targets[0].target, stmt.value
-    names = _listed_names(target)
+    names = _listed_names(target, evaluator)
     if names is None or not isinstance(value, cst.Call) \
             or not isinstance(value.func, cst.Attribute) \
             or value.func.attr.value not in _COLUMNWISE:
         return None
     source = value.func.value
     assert isinstance(target, cst.Subscript)
-    if _listed_names(source) != names or not isinstance(source, cst.Subscript) \
+    if _listed_names(source, evaluator) != names or not isinstance(source, cst.Subscript) \
             or not source.value.deep_equals(target.value):
         return None
     for arg in value.args:
@@ -2562,17 +2562,28 @@ def _columns_changed_alike(stmt: cst.BaseSmallStatement
     return owner, names, values
 
 
-def _listed_names(node: cst.BaseExpression) -> list[str] | None:
-    """The names of `df[["a", "b"]]` (two or more distinct text literals) or None."""
+def _listed_names(node: cst.BaseExpression, evaluator: Evaluator | None = None
+                  ) -> list[str] | None:
+    """The names of `df[["a", "b"]]` (two or more distinct text literals) or None; with an
+    evaluator, also of `df[NAMES]` and `df[NAMES + ["c"]]` where porter knows the list (a
+    module constant)."""
     if not (isinstance(node, cst.Subscript) and isinstance(node.value, cst.Name)
-            and len(node.slice) == 1 and isinstance(node.slice[0].slice, cst.Index)
-            and isinstance(node.slice[0].slice.value, cst.List)):
+            and len(node.slice) == 1 and isinstance(node.slice[0].slice, cst.Index)):
         return None
-    names = []
-    for element in node.slice[0].slice.value.elements:
-        if not isinstance(element.value, cst.SimpleString):
+    key = node.slice[0].slice.value
+    if evaluator is not None and isinstance(key, (cst.Name, cst.BinaryOperation)):
+        known = evaluator.eval(key)
+        if not (isinstance(known, Opaque) and isinstance(known.const, list) and not known.sites):
             return None
-        names.append(element.value.evaluated_value)
+        names = list(known.const)
+    elif isinstance(key, cst.List):
+        names = []
+        for element in key.elements:
+            if not isinstance(element.value, cst.SimpleString):
+                return None
+            names.append(element.value.evaluated_value)
+    else:
+        return None
     if len(names) < 2 or len(set(names)) != len(names) or not all(isinstance(n, str) for n in names):
         return None
     return names

@@ -670,6 +670,9 @@ class Evaluator:
         rounded = self.math_rounding(node)
         if rounded is not None:
             return rounded
+        levels = self.level_values(node)
+        if levels is not None:
+            return levels
         func = self.eval(node.func)
         if isinstance(func, Opaque) and not func.sites and isinstance(node.func, cst.Name):
             name = node.func.value
@@ -978,6 +981,14 @@ class Evaluator:
             if combined is not None:
                 return combined
             result = self.generic(node)
+            if isinstance(result, Opaque) and not result.is_const and op == "+" \
+                    and isinstance(left, Opaque) and isinstance(right, Opaque) \
+                    and left.is_const and right.is_const \
+                    and type(left.const) is type(right.const) and type(left.const) in (list, tuple) \
+                    and not result.sites:
+                # NAMES + ["other"]: two lists known when porter reads them, one known list
+                # (a column selection, the columns assigned to)
+                return replace(result, const=left.const + right.const)
             if isinstance(result, Opaque) and not result.is_const and op in ("+", "-", "*", "//", "%") \
                     and _whole_number(left) and _whole_number(right):
                 # len(df) * 2, s.sum() - 5: a whole number (stored as a column: Int64, as pandas)
@@ -1038,6 +1049,24 @@ class Evaluator:
             op = "~"  # `not` of one boolean value inside a lambda
         return self.dispatch("series.unary", PandasCall(operand, op, node=node), node)
 
+    def level_values(self, node: cst.Call) -> Value | None:
+        """`df.index.get_level_values("k")` of a table (or Series) labelled by key columns:
+        the key column (rules/selection.index_get_level_values); None for anything else, which
+        takes the plain path (df.index, then the method)."""
+        from porter.rules.selection import index_level
+        func = node.func
+        if not (isinstance(func, cst.Attribute) and func.attr.value == "get_level_values"
+                and isinstance(func.value, cst.Attribute) and func.value.attr.value == "index"
+                and len(node.args) == 1 and node.args[0].keyword is None
+                and not node.args[0].star):
+            return None
+        owner = self.eval(func.value.value)
+        level = self.eval(node.args[0].value)
+        if not isinstance(owner, (Frame, Column)) or index_level(owner, level) is None:
+            return None
+        return self.dispatch("frame.index.get_level_values",
+                             PandasCall(owner, "get_level_values", (level,), node=node), node)
+
     # -- rules ----------------------------------------------------------------------------------
     def regrouped(self, indexed: Indexed, node: cst.CSTNode) -> Value:
         """A groupby of a labelled table with columns taken (set_index(k).groupby(g)["c"]) as
@@ -1060,6 +1089,14 @@ class Evaluator:
             reason = entry.advice if entry is not None and entry.status == "todo" else (
                 "porter has no rule for this API yet")
             return self.todo(key, call, node, reason, entry=entry)
+        if key != "frame.getitem.column" and any(
+                isinstance(v, Frame) and v.value_levels
+                for v in (call.receiver, *call.args, *call.kwargs.values())):
+            # a pivot of several value columns: pandas' two levels of column labels, which
+            # only pv["value"] reads as porter holds them (rules/groupby._pivot_several_values)
+            return self.todo(key, call, node, "pandas' columns are two levels here (the value "
+                             "column, then the key's value): select one value column first",
+                             entry=entry)
         ctx = RuleContext(key, entry, entry.confidence, schema_lookup=self.services.schema_lookup,
                           evaluate=self.evaluate_with,
                           datetimes_possible=self.services.datetimes_possible,

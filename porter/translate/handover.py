@@ -145,9 +145,23 @@ def _nullable_again(code: Code, column: Column) -> Code:
     return code
 
 
+def product_labels(value: object):  # -> construct.ProductLabels | None
+    """The labels of a pd.MultiIndex.from_product `value` stands for, if it does."""
+    from porter.rules.construct import ProductLabels
+    if isinstance(value, Opaque) and isinstance(value.const, ProductLabels):
+        return value.const
+    return None
+
+
 def to_pandas(value: Value) -> Code:
     """The pandas object this value stands for (index restored where porter tracks one; dates,
     missing True/False values and categories as pandas holds them)."""
+    labels = product_labels(value)
+    if labels is not None:
+        # pd.MultiIndex.from_product, which porter holds as a Polars frame of its combinations
+        # (construct.ProductLabels), given to pandas code: pandas' MultiIndex of them
+        return value.code.method("collect").method("to_pandas").method(
+            "set_index", list(labels.names)).attr("index")
     if isinstance(value, Frame):
         categories = [c for c, t in value.dtypes if t == "category"]
         code = value.code
@@ -183,7 +197,15 @@ def to_pandas(value: Value) -> Code:
             code = _labels(code, value)
             if value.index_unnamed and len(value.index) == 1:
                 code = code.method("rename_axis", None)  # describe's statistics: no name
-        if value.columns_name is not None:
+        if value.value_levels:
+            # a pivot of several value columns: Polars' "a_x" is pandas' (a, x), the value
+            # column, then the key's value (Index.map of pairs makes the two levels)
+            prefixes = emit.render(value.value_levels)
+            code = code.method("pipe", emit.atom(
+                "lambda frame: frame.set_axis(frame.columns.map(lambda c: next("
+                f"(v, c[len(v) + 1:]) for v in {prefixes} if c.startswith(v + \"_\"))), axis=1)"))
+            code = code.method("rename_axis", columns=[None, value.columns_name])
+        elif value.columns_name is not None:
             # a pivoted table's columns are named after its key (pandas keeps the name through
             # reset_index): stack, melt and print read it
             code = code.method("rename_axis", columns=value.columns_name)
@@ -364,6 +386,8 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
         if value is None:
             return False
         if isinstance(value, Opaque):
+            if product_labels(value) is not None:
+                return True  # a Polars frame of the labels: pandas is given its MultiIndex
             if value.node is None:
                 # code porter wrote (a call of the script's own function given columns
                 # handed over): its source would subscript LazyFrames
@@ -420,7 +444,8 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
                 parts.append(source(element.slice))
         inner = ", ".join(parts)
         base = to_pandas(receiver).wrapped(emit.ATOM)
-        if isinstance(node.value, cst.Attribute) and node.value.attr.value in ("loc", "iloc", "ix") \
+        if isinstance(node.value, cst.Attribute) \
+                and node.value.attr.value in ("loc", "iloc", "ix", "at", "iat") \
                 and isinstance(receiver, (Frame, Column)):  # s.iloc[-1] is no s[-1] (a label)
             base = f"{base}.{node.value.attr.value}"
         return Code(f"{base}[{inner}]")

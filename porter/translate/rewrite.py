@@ -97,6 +97,10 @@ class ChildRewriter(cst.CSTTransformer):
     def _replace(self, node: cst.BaseExpression, display: bool) -> None:
         evaluator = self.evaluator
         value = evaluator.eval(node)
+        if handover.product_labels(value) is not None and not display:
+            # pd.MultiIndex.from_product, held as a Polars frame of its labels, in code left to
+            # pandas (a reindex of a table pandas made): pandas' MultiIndex of them
+            value = PandasValue(handover.to_pandas(value), sites=value.sites)
         if is_pandas(value):
             value = (Opaque(handover.for_display(value), sites=value.sites) if display
                      else evaluator.handed_to_unknown(value, node))

@@ -61,6 +61,13 @@ class Frame(Value):
     # the name pandas gives the columns of a pivoted table (pivot_table(columns="sp"): "sp"),
     # which .T, .stack() and print show
     columns_name: str | None = field(default=None, kw_only=True)
+    # a pivot of several value columns (pivot_table(values=[...], columns=k)): pandas labels
+    # its columns by two levels, the value column then the key's value; Polars names them
+    # "<value>_<key value>" (the pivot's own names). Each value column, in pandas' order
+    value_levels: tuple[str, ...] = field(default=(), kw_only=True)
+    # the type of the key whose values label the columns of a pivoted table (unstack): the
+    # labels stack brings back as a column
+    columns_kind: str | None = field(default=None, kw_only=True)
     # columns pandas labels with the integers 0, 1, … (Polars names them "0", "1", …)
     number_labels: tuple[str, ...] = field(default=(), kw_only=True)
     # columns pandas labels with a (column, function) pair of MultiIndex columns, flattened
