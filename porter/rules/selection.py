@@ -568,7 +568,7 @@ def _index_of(frame: Frame, ctx: RuleContext) -> Value:
         # pandas' RangeIndex: read by position too (df.index[-1] is the last row number)
         return Column(numbers, frame=frame, name=None, dtype="int", index_values=True)
     if len(frame.index) > 1 and not frame.index_unnamed:
-        # a MultiIndex: waiting for get_level_values (index_level_values); handed over as
+        # a MultiIndex: waiting for get_level_values (read on s.index itself: index_get_level_values); handed over as
         # pandas' index of the frame
         return Accessor(Code(f"{frame.code.text}.index"), column=column_of(frame, frame.index[0]),
                         kind="levels", index_of=frame)
@@ -581,30 +581,6 @@ def _index_of(frame: Frame, ctx: RuleContext) -> Value:
                         kind="dt", index_of=frame)
     return replace(column_of(frame, key), name=None if frame.index_unnamed else key,
                    index_values=True)
-
-
-@rule("series.levels.get_level_values")
-def index_level_values(call: PandasCall, ctx: RuleContext) -> Value:
-    """s.index.get_level_values(level) / df.index.get_level_values(level) -> that key column,
-    on a table labelled by several key columns (a groupby's): the level's values in the rows'
-    order.
-
-    Handles: the level by name or position; list(), tolist(), iteration read them as
-    s.index of one key does.
-    Caveats: a level the index does not have is a TODO (pandas raises)."""
-    accessor = call.receiver
-    assert isinstance(accessor, Accessor) and accessor.index_of is not None
-    frame = accessor.index_of
-    ctx.reject_unknown(call, "level", positional=1)
-    level = call.const("level", 0, None, kinds=(str, int))
-    if isinstance(level, int) and not isinstance(level, bool) \
-            and -len(frame.index) <= level < len(frame.index):
-        key = frame.index[level]
-    elif isinstance(level, str) and level in frame.index:
-        key = level
-    else:
-        raise ctx.todo(f"level {level!r} is not a level of the index (pandas raises)")
-    return replace(column_of(frame, key), index_values=True)
 
 
 def index_level(owner: Value, level: Value) -> str | None:

@@ -474,10 +474,6 @@ class Evaluator:
             if name in (receiver.frame.columns or ()):  # r.kg: the column, as r["kg"]
                 return self.dispatch("resample.getitem", PandasCall(
                     receiver, "getitem", (Opaque(emit.lit(name), const=name),), node=node), node)
-        if isinstance(receiver, Accessor) and receiver.kind == "levels" \
-                and name == "get_level_values":
-            # s.index of several keys (rules/selection.py, index_level_values)
-            return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
         if isinstance(receiver, Accessor):
             names = pandas_names.STR if receiver.kind == "str" else \
                 _WINDOW_METHODS if receiver.kind in handover.WINDOW_KINDS else pandas_names.DT
