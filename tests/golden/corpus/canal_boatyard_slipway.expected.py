@@ -468,8 +468,8 @@ slip = (
     .lazy()
 )
 
-# TODO(porter): frame.pivot_table: margins, dropna=False or sort=False; group_by the keys, then
-#   DataFrame.pivot(on, index, values) with the columns sorted
+# TODO(porter): frame.pivot_table: margins of sum of a column not known to be whole numbers;
+#   group_by the keys, then DataFrame.pivot(on, index, values) with the columns sorted
 fees = slip.collect().to_pandas().pivot_table(
     index="slip",
     columns="month",

@@ -214,6 +214,13 @@ def pandas_to_datetime(text, coerce):
     return read(pl.coalesce(guessed if coerce else [*guessed, text]), not coerce)
 
 
+def pandas_div(numerator, divisor):
+    """numerator / divisor, each value divided as pandas divides it: Polars multiplies by the
+    reciprocal of a single divisor, which can be one binary digit off the quotient (and a later
+    round() then goes the other way)."""
+    return numerator / (numerator.is_null() * 0 + divisor)
+
+
 # The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
 # off: Polars' strip_chars() leaves the separators \x1c-\x1f.
 PANDAS_WHITESPACE = (
@@ -308,7 +315,7 @@ GRADES = ["seed", "ware", "chats", "oversize"]
 
 
 def per_ha(kg, ha):
-    return (kg / 1000 / ha).round(2)
+    return (pandas_div(kg, 1000) / ha).fill_nan(None).round(2)
 
 
 # %% the lots sheet and the shed's tally
@@ -447,15 +454,35 @@ tidy = tidy.sort(
 print(tidy.head(10).collect())
 
 # %% growers: boxes, kilograms and yield per hectare
-# TODO(porter): frame.pivot_table: `aggfunc`=['sum', 'mean', 'count']: porter reads text or a dict
-#   here; group_by the keys, then DataFrame.pivot(on, index, values) with the columns sorted
-stats = graded.collect().to_pandas().pivot_table(
-    index="grower",
-    values="kg",
-    aggfunc=["sum", "mean", "count"],
+stats = (
+    graded
+    .drop_nulls("grower")
+    .group_by("grower")
+    .agg(
+        pl.col("kg").alias("sum_kg"),
+        pl.col("kg").alias("mean_kg"),
+        pl.col("kg").count().cast(pl.Int64).alias("count_kg"),
+    )
+    .with_columns(
+        pandas_group_sums(pl.col("sum_kg"), floats=False),
+        pandas_group_sums(pl.col("mean_kg"), mean=True, floats=False),
+    )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
+    .sort("grower")
+    .collect()
+    .pipe(
+        lambda t: t.drop([c for c in ["sum_kg", "mean_kg", "count_kg"] if t[c].is_null().all()]),
+    )
+    .lazy()
 )
-stats.columns = stats.columns.droplevel(1)
-stats = stats.rename(columns={"sum": "kg", "mean": "kg_per_box", "count": "boxes"})
+stats = stats.rename(
+    {"sum_kg": "sum", "mean_kg": "mean", "count_kg": "count"},
+    strict=False,
+)
+stats = stats.rename(
+    {"sum": "kg", "mean": "kg_per_box", "count": "boxes"},
+    strict=False,
+)
 ha = (
     lots
     .drop_nulls("grower")
@@ -465,12 +492,25 @@ ha = (
     .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort("grower")
 )
-# TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
-#   pandas with .collect().to_pandas(); port that code to take a Polars frame
-stats["hectares"] = ha.collect().to_pandas().set_index("grower")["hectares"]
-stats["t_per_ha"] = per_ha(stats["kg"], stats["hectares"])
-stats = stats.sort_index().reset_index()
-stats = pl.from_pandas(stats).lazy()
+stats = (
+    stats
+    .join(
+        ha.select(pl.col("grower"), pl.col("hectares").alias("_porter_aligned")),
+        on="grower",
+        how="left",
+        nulls_equal=True,
+        maintain_order="left",
+    )
+    .with_columns(hectares=pl.col("_porter_aligned"))
+    .drop("_porter_aligned")
+    .collect()
+    .pipe(
+        lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("hectares",) if t[c].dtype.is_integer() and t[c].has_nulls()]),
+    )
+    .lazy()
+)
+stats = stats.with_columns(t_per_ha=per_ha(pl.col("kg"), pl.col("hectares")))
+stats = stats.sort("grower", nulls_last=True)
 stats = stats.with_columns(kg_per_box=pl.col("kg_per_box").round(1))
 (
     stats
@@ -498,11 +538,14 @@ by_lot = (
     .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort(["field", "lot"])
 )
-# TODO(porter): series.groupby: porter has no rule for this API yet
-best = by_lot.sort(pl.col("kg"), descending=True, nulls_last=True, maintain_order=True).collect().to_pandas().set_index(["field", "lot"])["kg"].groupby(level="field").head(
-    1,
+best = (
+    by_lot
+    .sort(pl.col("kg"), descending=True, nulls_last=True, maintain_order=True)
+    .filter(pl.col("field").is_not_null() & (pl.int_range(pl.len()).over("field") < 1))
 )
-best = best.sort_index()
+# TODO(porter): series.sort_index: row labels that are original row numbers after a filter or sort,
+#   or keys that may repeat: keep them in a column (with_row_index) and sort by it
+best = best.collect().to_pandas().set_index(["field", "lot"])["kg"].sort_index()
 print("fields:", list(best.index.get_level_values("field")))
 best_lots = best.index.get_level_values("lot")
 best = best.droplevel("lot").rename_axis("field").reset_index(name="kg")
@@ -512,8 +555,8 @@ best["lot"] = list(best_lots)
 # TODO(porter): handover.unknown_code: passed to code porter does not understand: handed over to
 #   pandas with .collect().to_pandas(); port that code to take a Polars frame
 # TODO(porter): frame.getitem.column: kept on pandas with the statement it is in
-# TODO(porter): series.map: a named function porter cannot read: write its body as a lambda or as
-#   column expressions
+# TODO(porter): series.map: values and labels not known to be of one type (text, whole numbers or
+#   dates)
 # TODO(porter): frame.setitem: a Series computed by pandas whose rows porter cannot match to the
 #   frame's (pandas aligns it on the index): the statement stays pandas
 best["variety"] = best["lot"].map(

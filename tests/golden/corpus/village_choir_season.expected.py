@@ -244,6 +244,18 @@ def pandas_to_datetime(text, coerce):
     return read(pl.coalesce(guessed if coerce else [*guessed, text]), not coerce)
 
 
+def pandas_count_margins(table, key, name="All"):
+    """crosstab(margins=True) of counts: a last column `name` with each row's total and a
+    last row `name` with each column's total, as pandas adds them; pandas raises when a key
+    already holds that name. A table without rows stays as it is."""
+    if table.is_empty():
+        return table
+    if (table[key] == name).any() or name in table.drop(key).columns:
+        raise ValueError(f'Conflicting name "{name}" in margins')
+    table = table.with_columns(pl.sum_horizontal(pl.exclude(key)).alias(name))
+    return pl.concat([table, table.select(pl.lit(name).alias(key), pl.exclude(key).sum())])
+
+
 def pandas_div(numerator, divisor):
     """numerator / divisor, each value divided as pandas divides it: Polars multiplies by the
     reciprocal of a single divisor, which can be one binary digit off the quotient (and a later
@@ -426,9 +438,7 @@ counts = (
     .pivot(on="mark", index="part", values="len")
     .sort("part")
     .with_columns(pl.exclude("part").fill_null(0))
-    .pipe(
-        lambda t: t if t.is_empty() else t.with_columns(pl.sum_horizontal(pl.exclude("part")).alias("All")).pipe(lambda t: pl.concat([t, t.select(pl.lit("All").alias("part"), pl.exclude("part").sum())])),
-    )
+    .pipe(pandas_count_margins, "part")
     .lazy()
 )
 print(counts.collect())
