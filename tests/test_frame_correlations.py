@@ -79,3 +79,19 @@ def test_correlation_of_group_means_leaves_the_keys_out():
         result = df.groupby("k").mean().corr()
     """)
     assert "TODO" not in result.converted_text and "pl.corr" in result.converted_text
+
+
+def test_correlation_of_columns_typed_at_run_time(tmp_path):
+    # height_m is int in its file, made float by the left merge (a missing apiary) and filled:
+    # porter knows its type only at run time
+    result = same_text("""
+        import pandas as pd
+        df = pd.read_csv("hives.csv")
+        heights = pd.read_csv("heights.csv")
+        df = df.merge(heights, on="apiary", how="left")
+        df["height_m"] = df["height_m"].fillna(0)
+        corr = df[["frames", "honey", "height_m"]].corr()
+        corr.to_csv("corr.csv")
+    """, tmp_path, {"hives.csv": "apiary,frames,honey\nA,3,1.5\nB,7,2.25\nC,4,\nA,9,7.0\nÉ,2,0.5\n",
+                    "heights.csv": "apiary,height_m\nA,410\nB,120\nÉ,95\n"})
+    assert "TODO" not in result.converted_text

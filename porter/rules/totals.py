@@ -130,7 +130,9 @@ def frame_corr(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: Pearson's correlation over the rows where both values are present, as pandas
     pairs them; a column with fewer than two values, or none that vary, gives a missing value
     (NaN in pandas); min_periods; True/False columns as 1 and 0; numeric_only=True when every
-    column's type is known.
+    column's type is known; columns whose type is known only at run time (after a merge or a
+    fillna of one) cast to Float64 as the number columns are (0.9: text that reads as numbers,
+    or dates, would be correlated where pandas raises).
     Caveats: pandas computes each pair with Welford's running sums, Polars with another
     order of adding: the last digit can differ (0.47619312 in both to 15 digits) (0.9).
     method="spearman" / "kendall", and text or date columns (pandas raises) are TODOs.
@@ -145,11 +147,19 @@ def frame_corr(call: PandasCall, ctx: RuleContext) -> Value:
     # the columns holding the frame's index (row labels carried after a filter, a groupby's
     # keys) are not pandas' columns: a correlation never reads the index
     names = [c for c in frame.columns if c not in frame.index]
-    if any(frame.dtype(c) is None for c in names):
-        raise Unsupported("a frame whose column types porter does not know")
+    untyped = [c for c in names if frame.dtype(c) is None]
+    numeric_only = call.const("numeric_only", None, False, kinds=(bool,))
+    if untyped and numeric_only:
+        raise Unsupported("numeric_only=True of columns whose types porter does not know")
+    if untyped:
+        # typed at run time (a merge, fillna of such a column): cast to Float64 as the number
+        # columns are; text or dates there stop the script, as pandas raises for them
+        ctx.lower(f"the types of {', '.join(map(repr, untyped))} are not known: numbers are "
+                  "correlated as pandas does; text that reads as numbers, or dates, would be "
+                  "correlated where pandas raises", 0.9)
     _plain_names(replace(frame, index=()))
-    numbers = [c for c in names if frame.dtype(c) in ("int", "float", "bool")]
-    if call.const("numeric_only", None, False, kinds=(bool,)):
+    numbers = [c for c in names if frame.dtype(c) in ("int", "float", "bool", None)]
+    if numeric_only:
         names = numbers
     elif numbers != names:
         raise Unsupported("text or date columns: pandas raises (numeric_only=True leaves them "
@@ -169,7 +179,7 @@ def frame_corr(call: PandasCall, ctx: RuleContext) -> Value:
         return value.method("alias", b)
 
     cast = frame.code.method("with_columns", emit.col(names).method(
-        "cast", emit.atom("pl.Float64")))
+        "cast", emit.atom("pl.Float64")))  # a text column fails here, as pandas raises
     rows = [cast.method("select", emit.pl("lit", a).method("alias", "index"),
                         *(pair(a, b) for b in names)) for a in names]
     code = emit.pl("concat", rows)
