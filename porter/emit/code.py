@@ -293,7 +293,7 @@ def _split_argument(arg: str, indent: str, width: int, min_steps: int = 2) -> li
         return [f"{indent}{head}{{", *(f"{indent}    {item}," for item in items), f"{indent}}},"]
     if parsed is None:
         return [f"{indent}{arg},"]
-    keyword = f"{parsed.keyword.value}=" if parsed.keyword is not None else ""
+    keyword = _argument_head(parsed)  # kw=, or the star of *values / **mapping
     parts = _chain_parts(parsed, min_steps)
     if parts is None:
         # f([...]).collect(), pl.when(...).then(...): broken before the one step, since the
@@ -371,7 +371,13 @@ def _dict_parts(arg: Any) -> tuple[str, list[str]] | None:
     module = cst.Module([])
     items = [module.code_for_node(e.with_changes(comma=cst.MaybeSentinel.DEFAULT)).strip()
              for e in arg.value.elements]
-    return (f"{arg.keyword.value}=" if arg.keyword is not None else ""), items
+    return _argument_head(arg), items
+
+
+def _argument_head(arg: Any) -> str:
+    """What an argument's value follows: `kw=`, the star of `*values` / `**mapping`, or
+    nothing."""
+    return f"{arg.keyword.value}=" if arg.keyword is not None else arg.star or ""
 
 
 def _chain_parts(arg: Any, min_steps: int = 2) -> tuple[str, list[str]] | None:
@@ -418,6 +424,8 @@ def _chain_parts(arg: Any, min_steps: int = 2) -> tuple[str, list[str]] | None:
     head = module.code_for_node(node)
     if keyword is not None:
         head = f"{keyword.value}={head}"
+    elif arg.star:  # *values / **mapping: the star stays in front of the chain
+        head = f"{arg.star}{head}"
     return head, steps
 
 
