@@ -153,7 +153,7 @@ def frame_corr(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("numeric_only=True of columns whose types porter does not know")
     if untyped:
         # typed at run time (a merge, fillna of such a column): cast to Float64 as the number
-        # columns are; text or dates there stop the script, as pandas raises for them
+        # columns are; text that is not numbers stops the script there, as pandas raises
         ctx.lower(f"the types of {', '.join(map(repr, untyped))} are not known: numbers are "
                   "correlated as pandas does; text that reads as numbers, or dates, would be "
                   "correlated where pandas raises", 0.9)
