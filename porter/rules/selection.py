@@ -334,8 +334,9 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     row (pl.col("c").get(the first row holding the extreme)); df.loc["label"] of a table
     labelled by one key column: the rows holding the label picked in Polars, handed to pandas,
     which gives its row Series (one row), a frame (several) or KeyError (none), as on the table.
+    df.loc[("a", 2)] of a table labelled by as many key columns is read the same way.
     Caveats: other row labels (df.loc[[...]], df.loc["a":"c"], row numbers after a filter) are
-    TODOs; a tuple of labels picks the rows of a table labelled by as many key columns: the index is not data in Polars.
+    TODOs: the index is not data in Polars.
     """
     frame = frame_of(call)
     rows = call.args[0]
@@ -568,8 +569,8 @@ def _index_of(frame: Frame, ctx: RuleContext) -> Value:
         # pandas' RangeIndex: read by position too (df.index[-1] is the last row number)
         return Column(numbers, frame=frame, name=None, dtype="int", index_values=True)
     if len(frame.index) > 1 and not frame.index_unnamed:
-        # a MultiIndex: waiting for get_level_values (read on s.index itself: index_get_level_values); handed over as
-        # pandas' index of the frame
+        # a MultiIndex: get_level_values read on s.index itself is index_get_level_values;
+        # otherwise handed over as pandas' index of the frame
         return Accessor(Code(f"{frame.code.text}.index"), column=column_of(frame, frame.index[0]),
                         kind="levels", index_of=frame)
     if len(frame.index) != 1:
@@ -619,14 +620,14 @@ def index_get_level_values(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("frame.droplevel")
 def droplevel(call: PandasCall, ctx: RuleContext) -> Value:
-    """df.droplevel("k") -> .drop("k"), on a table (or Series) labelled by several key columns.
+    """df.droplevel("k") -> .drop("k"), on a table labelled by several key columns (a Series:
+    rows.series_droplevel).
 
     Handles: levels named or given by position, one or a list; the rows stay as they are, the
     other keys label them (no longer known to be distinct).
     Caveats: axis=1 (levels of column labels), dropping every level (pandas raises), row
     numbers and carried labels are TODOs."""
-    receiver = call.receiver
-    frame = receiver.frame if isinstance(receiver, Column) else receiver
+    frame = call.receiver
     assert isinstance(frame, Frame)
     ctx.reject_unknown(call, "level", "axis", positional=1)
     if call.const("axis", None, 0, kinds=(int, str)) not in (0, "index", "rows"):
@@ -644,18 +645,13 @@ def droplevel(call: PandasCall, ctx: RuleContext) -> Value:
         dropped.append(found)
     if len(dropped) == len(keys):
         raise ctx.todo("dropping every level (pandas raises ValueError)")
-    if isinstance(receiver, Column) and receiver.name in dropped:
-        raise ctx.todo("a Series named like a level it drops")
     code = frame.code.method("drop", *dropped)
     columns = None if frame.columns is None else tuple(c for c in frame.columns if c not in dropped)
     result = derive(frame, code, same_rows=True, columns=columns,
                     dtypes=tuple((c, t) for c, t in frame.dtypes if c not in dropped))
     # the keys left may repeat: no longer a groupby's distinct, sorted labels
-    result = replace(result, index=tuple(k for k in keys if k not in dropped), grouped_rows=None,
-                     levels_as_met=False, levels_with_missing=False)
-    if isinstance(receiver, Column):
-        return replace(receiver, frame=result, sites=())
-    return result
+    return replace(result, index=tuple(k for k in keys if k not in dropped), grouped_rows=None,
+                   levels_as_met=False, levels_with_missing=False)
 
 
 @rule("frame.index.assign")
