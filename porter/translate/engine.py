@@ -140,19 +140,24 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     # A function whose body was ported once for the texts its calls pass in the analysis
     # passes but not in the last pass (texts_followed) is learnt again without that (twice at
     # most): its callers must not take what it returns for frames the last pass did not write.
+    def analysis_pass() -> dict[str, Any]:
+        """One walk that writes nothing, what it learns from the walk started afresh; the
+        functions as this walk learnt them."""
+        services.call_sites = {}
+        services.consumers, services.frame_parents = {}, {}
+        services.row_counts, services.plan_texts = {}, {}
+        services.materialized = set()
+        services.applied_functions, services.applied_kinds = {}, {}
+        walker = _Walker(services, facts, emit_code=False, files=files)
+        walker.block(module.body, _initial_env(facts), module.default_indent, "")
+        return learn_functions(services, walker.returns, walker.returned_of, walker.body_values,
+                               walker.choice_returns)
+
     for _attempt in range(2):
         for _ in range(10):
-            services.call_sites = {}
             services.labels_needed = set()
             services.label_functions, services.pandas_functions = set(), set()
-            services.consumers, services.frame_parents = {}, {}
-            services.row_counts, services.plan_texts = {}, {}
-            services.materialized = set()
-            services.applied_functions, services.applied_kinds = {}, {}
-            walker = _Walker(services, facts, emit_code=False, files=files)
-            walker.block(module.body, _initial_env(facts), module.default_indent, "")
-            updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values,
-                                       walker.choice_returns)
+            updated = analysis_pass()
             if updated == services.functions:
                 break
             services.functions = updated
@@ -166,15 +171,7 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
         for _ in range(module.code.count("\n") + 1
                        if services.labels_needed or services.label_functions else 0):
             labels_before = set(services.labels_needed)
-            services.call_sites = {}
-            services.consumers, services.frame_parents = {}, {}
-            services.row_counts, services.plan_texts = {}, {}
-            services.materialized = set()
-            services.applied_functions, services.applied_kinds = {}, {}
-            walker = _Walker(services, facts, emit_code=False, files=files)
-            walker.block(module.body, _initial_env(facts), module.default_indent, "")
-            updated = learn_functions(services, walker.returns, walker.returned_of, walker.body_values,
-                                       walker.choice_returns)
+            updated = analysis_pass()
             if services.labels_needed == labels_before and updated == services.functions:
                 break
             services.functions = updated
