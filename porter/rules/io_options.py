@@ -223,6 +223,31 @@ def pandas_div(numerator, divisor):
     return numerator / (numerator.is_null() * 0 + divisor)
 """
 
+# A function, defined once at the top of a converted script, that computes x // d and x % d
+# of floats as pandas does (numpy's floor_divide and remainder).
+FLOAT_DIVMOD_FUNCTION = "pandas_float_divmod"
+FLOAT_DIVMOD_DEFINITION = """\
+def pandas_float_divmod(numerator, divisor, remainder=False):
+    \"\"\"numerator // divisor (remainder=True: numerator % divisor) of floats as pandas computes
+    them, with numpy: the floor of the exact quotient and the exact remainder (1.0 // 0.1 is
+    9.0 and 1.0 % 0.1 is 0.09999999999999995, where Polars floors the rounded quotient: 10.0,
+    and 1.0 - 0.1 * 10.0 is 0.0). Missing values stay missing, and so does a NaN the division
+    makes (0.0 // 0.0); x // 0.0 is inf.\"\"\"
+
+    def compute(parts):
+        import numpy as np
+
+        numbers, divisors = (column.to_numpy() for column in parts.struct.unnest().get_columns())
+        with np.errstate(all="ignore"):
+            values = (np.remainder if remainder else np.floor_divide)(numbers, divisors)
+        return pl.Series(values, dtype=pl.Float64).fill_nan(None)
+
+    divisor = divisor if isinstance(divisor, pl.Expr) else pl.lit(divisor)
+    # the result keeps the numerator's name, as Polars' // does
+    return pl.struct(numerator, divisor.alias("_porter_divisor")).map_batches(
+        compute, return_dtype=pl.Float64, is_elementwise=True)
+"""
+
 # A function, defined once at the top of a converted script, that computes a quantile as
 # pandas does (numpy's linear interpolation, to the last binary digit).
 QUANTILE_FUNCTION = "pandas_quantile"

@@ -20,7 +20,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.datetimes import is_timedelta, timedelta_arithmetic
-from porter.rules.io_options import DIVIDE_FUNCTION
+from porter.rules.io_options import DIVIDE_FUNCTION, FLOAT_DIVMOD_FUNCTION
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, check_same_rows, derive, derived_column,
     value_dtype, without_index,
@@ -92,7 +92,10 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
     (_repeated_text); a number column and NaN (x * np.nan) make a float column of missing
     values, as pandas makes one of NaN. pandas' nullable integers (astype("Int64")): x // 0
     and x % 0 are 0, the result integer. A float column that may be float32 divided by a
-    number stays Float32 (numpy takes the number as float32).
+    number stays Float32 (numpy takes the number as float32). x // d and x % d where a float
+    takes part are computed by numpy (pandas_float_divmod): it floors the exact quotient and
+    takes the exact remainder, Polars floors the rounded quotient (1.0 // 0.1: 9.0 against
+    10.0).
     Caveats: two operands of unknown type (a + b without --data) may be text or dates, where
     fill_nan fails: left out, confidence 0.95 (for - and * only when the script makes no
     datetimes).
@@ -154,6 +157,13 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
         if not _is_nonzero_constant(right) or lplain is not lcode or rplain is not rcode:
             code = code.method("fill_nan", None)
         dtype = "float"
+    elif op in ("//", "%") and _float_division(left, right) and not float32_possible(ctx):
+        # numpy floors the exact quotient and takes the exact remainder; Polars floors the
+        # rounded quotient (1.0 // 0.1: 9.0 against 10.0; 1.0 % 0.1: 0.09999999999999995
+        # against 0.0, and most remainders by a fraction a digit off): numpy computes them
+        code = emit.call(FLOAT_DIVMOD_FUNCTION, _nan_unfilled(lcode), _nan_unfilled(rcode),
+                         **({"remainder": True} if op == "%" else {}))
+        dtype = "float"
     elif op in ("//", "%") and ltype == rtype == "int" and any(
             masked(v) and v.nullable_int not in MASKED_DTYPES for v in (left, right)):
         # pandas' nullable integers: x // 0 and x % 0 are 0 (<NA> for a missing x), and the
@@ -173,6 +183,8 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
         if _is_nonzero_constant(right):
             code = emit.binop(lcode, "//", rcode)
             dtype = ltype if ltype in NUMERIC else None
+            if ltype not in ("int", "bool"):
+                ctx.lower(_NEAR_A_MULTIPLE, 0.99)
         elif ltype == rtype == "int" and any(isinstance(v, Column) and v.element for v in (left, right)) \
                 and not any(isinstance(v, Column) and v.float_int for v in (left, right)):
             # one value of a function (s.map, a row of apply that holds text, which pandas
@@ -191,6 +203,8 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
                 and not right.const.is_integer():
             ctx.lower("the remainder of a division by a fraction is computed as x - d * floor(x / d), "
                       "which can be some binary digits off pandas' exact remainder", 0.9)
+        elif ltype not in ("int", "bool"):
+            ctx.lower(_NEAR_A_MULTIPLE, 0.99)
         if isinstance(right, Opaque) and right.const == 0:
             code = emit.pl("lit", None, dtype=emit.atom("pl.Float64"))  # every value is NaN
         elif _is_nonzero_constant(right) and right.const < 0 and ltype != "bool":  # type: ignore[union-attr]
@@ -897,6 +911,28 @@ _SMALL_FLOAT_NAMES = frozenset({"float32", "Float32", "float16", "Float16", "sin
 _BINARY_READERS = frozenset({"read_parquet", "read_feather", "read_orc", "read_hdf",
                              "read_pickle", "read_stata", "read_spss", "read_sas", "read_sql",
                              "read_sql_query", "read_sql_table"})
+
+
+# x // 3 and x % 3 of a column whose type porter does not know (without --data): where it holds
+# floats, Polars' result differs from numpy's for a value just below a multiple of the divisor
+_NEAR_A_MULTIPLE = ("x // d and x % d of a column of unknown type: if it holds floats, a value one "
+                    "binary digit below a multiple of d is floored another way than numpy floors "
+                    "it (Polars floors the rounded quotient)")
+
+
+def _float_division(left: Value, right: Value) -> bool:
+    """Whether x // d or x % d divides numbers of which one is a float (a float column or a
+    float written in the script), each a column or a number, none the value of a function
+    run in Python (where Python's // is pandas' already)."""
+    def number(value: Value) -> str | None:
+        if isinstance(value, Column):
+            return value.dtype if value.dtype in ("int", "float") and not value.element else None
+        if isinstance(value, Opaque) and value.is_const and type(value.const) in (int, float):
+            return "float" if isinstance(value.const, float) else "int"
+        return None
+
+    kinds = [number(left), number(right)]
+    return None not in kinds and "float" in kinds
 
 
 def float32_possible(ctx: RuleContext) -> bool:
