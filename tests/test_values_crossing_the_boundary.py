@@ -177,3 +177,18 @@ def test_two_levels_of_column_labels_handed_to_pandas(tmp_path: Path) -> None:
         c[("v", "range")] = c[("v", "max")] - c[("v", "min")]
         c.to_csv("c.csv", index=False)
     """, tmp_path, {"d.csv": "k,v\na,1\na,3\nb,2\n"})
+
+
+def test_series_labelled_by_texts_handed_over_has_an_unnamed_index(tmp_path: Path) -> None:
+    # pd.Series(..., index=[...]) has an unnamed index; porter holds the labels in a column
+    # called "index", which must not become the index's name on the way back to pandas: it
+    # would show as extractall's first level ("index" where pandas has "level_0"), in a print
+    # and in to_csv's header (source: pandas' own docstring example of str.extractall)
+    same_text("""
+        import pandas as pd
+        s = pd.Series(["a1a2", "b1", "c1", None, "é9"], index=["A", "B", "C", "D", "É"])
+        found = s.str.extractall(r"[abé](\\d)")
+        print(found)
+        found.reset_index().to_csv("found.csv", index=False)
+        s.str.extractall(r"(?P<letter>[ab])?(?P<digit>\\d)").to_csv("parts.csv")
+    """, tmp_path)

@@ -250,6 +250,10 @@ def to_pandas(value: Value) -> Code:
             code = _nullable_again(_labels(made, value.frame).index(name), value)
             if renamed is not None:
                 code = code.method("rename", renamed)
+            if value.frame.index_unnamed and len(value.frame.index) == 1:
+                # pandas' index has no name (pd.Series(..., index=[...])): the key column's
+                # name would show in reset_index(), extractall's levels, a print
+                code = code.method("rename_axis", None)
         elif value.dtype == "category":  # categories sorted, as astype("category") made them
             code = (series_frame(value).method("collect").method("to_series")
                     .method("cast", emit.atom("pl.String")).method("to_pandas").method("astype", "category"))
