@@ -1260,7 +1260,8 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: missing values are skipped (nunique does not count them; with dropna=False they
     count once); the sum of text joins
-    the texts; std/var with ddof=1;
+    the texts; std/var with ddof (1 by default), of numbers computed as pandas' nanvar does
+    (pandas_reduce: numpy's pairwise sums in two passes, to the last digit);
     the mean, median, std, var (and the min and max of a float column) of no values (an empty
     selection, only missing values, the std of one value) are NaN in pandas and None in
     Polars: the Python value is made NaN (fill_null(float("nan"))).
@@ -1334,6 +1335,12 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
     in_group = GROUP_VALUES in column.frame.code.text
     if how == "sum" and column.dtype == "float" and not column.element and in_group:
         return _numpy_sum(column, code, expr)
+    if how in ("std", "var") and column.dtype in ("int", "float") and not column.element \
+            and not in_group and float64:
+        # numpy's two passes, as pandas' nanvar: the pairwise sum for the mean, then the
+        # squared distances added the same way; Polars' own std can be a digit off
+        # (3.265986323710904 for 3.2659863237109046)
+        expr = pandas_reduce(code, how, call.const("ddof", None, 1))
     if how == "sum" and column.dtype == "float" and not column.element:
         # inside an expression of the same rows (d["v"] / d["v"].sum()) the total is numpy's
         # pairwise sum too: Polars' own sum adds in another order and the share could differ
