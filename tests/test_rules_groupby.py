@@ -103,10 +103,6 @@ def test_ports(before: str, expected: str) -> None:
 TODOS = [
     pytest.param('r = df.groupby("shop")["t"].agg(lambda s: ", ".join(s.dropna()))', "groupby.agg",
                  id="agg with a lambda that is not an expression"),
-    pytest.param('r = df.groupby("shop")["qty"].agg(lambda s: s.sum() / df["qty"].sum())',
-                 "groupby.agg", id="agg with a lambda reading the whole frame",
-                 marks=pytest.mark.xfail(reason="known gap: a function handed to pandas that "
-                                         "reads a frame porter tracks still sees a LazyFrame")),
     pytest.param('r = df.groupby("shop").agg(["min", "max"])', "groupby.agg",
                  id="list of functions over several columns"),
     pytest.param('r = df.groupby("shop")["t"].sum(min_count=1)', "groupby.sum",

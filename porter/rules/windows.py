@@ -385,6 +385,14 @@ def _group_of(grouped: Grouped) -> Frame:
 FLOAT_BRANCH = r"\.(then|otherwise)\((pl\.lit\()?(-?[0-9]+\.[0-9]*|float)"
 
 
+def _rows_elsewhere(value: Frame | Column) -> Frame | Column:
+    """A frame (or a column of one) read inside a group's function, taken as rows of their
+    own: what the function computes of it is not the group's."""
+    if isinstance(value, Column):
+        return replace(value, frame=replace(value.frame, rows=fresh_token()))
+    return replace(value, rows=fresh_token())
+
+
 def group_function(call: PandasCall, grouped: Grouped, name: str, function: Opaque,
                    ctx: RuleContext) -> tuple[Code, str | None]:
     """agg(f) on the group's column `name`: f's body evaluated once with its parameter
@@ -392,14 +400,19 @@ def group_function(call: PandasCall, grouped: Grouped, name: str, function: Opaq
     `s.str.len().mean()`) or reductions combined by Python operators (`s.max() - s.min()`)
     is one value per group: (the aggregation expression, its type)."""
     param, body = _parameter_and_body(call, function, ctx, "write it as an aggregation")
+    others: dict[str, Value] = {}
     for other in _free_names(body) - {param}:
-        # a reduction of a whole frame inside the function (s.sum() / df["kg"].sum()) would be
-        # written as the group's own in an aggregation
-        if isinstance(ctx.evaluate(cst.Name(other), {}), (Frame, Column, Grouped)):
+        value = ctx.evaluate(cst.Name(other), {})
+        if isinstance(value, Grouped):
             raise Unsupported(f"the function reads `{other}`, not only the group's values")
+        if isinstance(value, (Frame, Column)):
+            # a reduction of a whole frame inside the function (s.sum() / df["kg"].sum()) is
+            # one value for every group: its rows made another frame's, so that it is
+            # computed once (collected), never written as the group's own in the aggregation
+            others[other] = _rows_elsewhere(value)
     group = _group_of(grouped)
     values = column_of(group, name)
-    result = _checked(ctx.evaluate(body, {param: values}), ctx)
+    result = _checked(ctx.evaluate(body, {**others, param: values}), ctx)
     if isinstance(result, Scalar) and result.agg is not None and result.agg.frame.rows == group.rows:
         expr, dtype = result.agg.code, result.agg.dtype or result.pytype
     else:
@@ -409,7 +422,7 @@ def group_function(call: PandasCall, grouped: Grouped, name: str, function: Opaq
         if not reductions.bindings or _mentions(rewritten, param):
             raise Unsupported("the function's result is not one value of the group's column "
                               "(a reduction, or reductions combined by operators)")
-        combined = _checked(ctx.evaluate(rewritten, reductions.bindings), ctx)
+        combined = _checked(ctx.evaluate(rewritten, {**others, **reductions.bindings}), ctx)
         if not (isinstance(combined, Column) and combined.frame.rows == grouped.frame.rows):
             raise Unsupported("the function's reductions are combined in a way porter cannot "
                               "write as an expression")
