@@ -293,6 +293,9 @@ def _split_argument(arg: str, indent: str, width: int, min_steps: int = 2) -> li
         return [f"{indent}{head}{{", *(f"{indent}    {item}," for item in items), f"{indent}}},"]
     if parsed is None:
         return [f"{indent}{arg},"]
+    looped = _comprehension_lines(parsed, indent, width)
+    if looped is not None:
+        return looped
     keyword = _argument_head(parsed)  # kw=, or the star of *values / **mapping
     parts = _chain_parts(parsed, min_steps)
     if parts is None:
@@ -322,6 +325,33 @@ def _split_argument(arg: str, indent: str, width: int, min_steps: int = 2) -> li
             lines += _split_argument(arg, indent + "    ", width)
         lines.append(f"{indent}){end}")
     return lines
+
+
+def _comprehension_lines(arg: Any, indent: str, width: int) -> list[str] | None:
+    """`[f(a) for a in names]` or `*(g(b) for b in names)` too long for its line: the value
+    on lines of its own (laid out as an argument is), then each `for` / `if` clause, inside
+    the brackets."""
+    import libcst as cst
+
+    node = arg.value
+    if isinstance(node, cst.ListComp):
+        opening, closing = "[", "]"
+    elif isinstance(node, cst.GeneratorExp) and node.lpar:
+        opening, closing = "(", ")"
+    else:
+        return None
+    module = cst.Module([])
+    value = _split_argument(module.code_for_node(node.elt), indent + "    ", width)
+    value[-1] = value[-1][:-1]  # (an argument's lines end in a comma)
+    clauses: list[str] = []
+    clause: Any = node.for_in
+    while clause is not None:
+        clauses.append(f"for {module.code_for_node(clause.target)} in "
+                       f"{module.code_for_node(clause.iter)}")
+        clauses += [f"if {module.code_for_node(c.test)}" for c in clause.ifs]
+        clause = clause.inner_for_in
+    return [f"{indent}{_argument_head(arg)}{opening}", *value,
+            *(f"{indent}    {c}" for c in clauses), f"{indent}{closing},"]
 
 
 def _split_operation(text: str, prefix: str) -> str | None:

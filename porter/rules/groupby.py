@@ -1399,6 +1399,47 @@ def numpy_reduction(call: PandasCall, ctx: RuleContext) -> Value:
     return series_reduce(replace(call, receiver=column, name=how, args=(), kwargs=kwargs), ctx)
 
 
+# numpy's order statistics of a Series read its values (numpy does not hand them to the
+# Series' own method): a missing value, NaN to numpy, makes the result NaN; the nan* forms
+# skip missing values. The quantile asked for, as a fraction (np.percentile's q / 100)
+NUMPY_QUANTILES = ("np.median", "np.nanmedian", "np.percentile", "np.nanpercentile",
+                   "np.quantile", "np.nanquantile")
+
+
+@rule(*NUMPY_QUANTILES)
+def numpy_quantile(call: PandasCall, ctx: RuleContext) -> Value:
+    """np.median(s) / np.percentile(s, q) / np.quantile(s, q) and their nan* forms ->
+    numpy's linear interpolation of the column's values (pandas_quantile), one value.
+
+    Handles: numpy interpolates linearly between the two values around the position, to the
+    last digit as pandas_quantile computes it; np.percentile divides q by 100 as numpy does;
+    a missing value makes np.median / np.percentile / np.quantile NaN (numpy reads NaN), the
+    nan* forms skip missing values; integer columns give floats.
+    Caveats: several quantiles at once (a list q), axis=, method= and the like, a q outside
+    [0, 100] (numpy raises), and columns not known to hold numbers are TODOs.
+    """
+    name = call.name
+    median = name.endswith("median")
+    ctx.reject_unknown(call, "a", *(() if median else ("q",)), positional=1 if median else 2)
+    column = call.arg("a", 0)
+    if not isinstance(column, Column) or column.element:
+        raise Unsupported(f"np.{name} of something other than one column")
+    if column.dtype not in ("int", "float"):
+        raise Unsupported(f"np.{name} of a column not known to hold numbers")
+    q = 0.5 if median else call.const("q", 1, None)
+    if not isinstance(q, (int, float)) or isinstance(q, bool):
+        raise Unsupported("several quantiles at once, or a q computed at run time")
+    if name.endswith("percentile"):
+        q = q / 100  # numpy's true division, the same float
+    if not 0 <= q <= 1:
+        raise Unsupported("a quantile outside [0, 1] (numpy raises)")
+    expr = emit.call(QUANTILE_FUNCTION, column.code, q)
+    if not name.startswith("nan"):
+        # numpy reads a missing value as NaN, which makes the result NaN
+        expr = emit.when(emit.binop(column.code.method("null_count"), "==", 0), expr)
+    return scalar_of(column, expr, collected=expr.method("fill_null", emit.call("float", "nan")))
+
+
 @rule("series.mode")
 def series_mode(call: PandasCall, ctx: RuleContext) -> Value:
     """s.mode() -> the most frequent values, sorted, as a column of a frame of their own.
