@@ -26,6 +26,9 @@ STATEMENTS = [
     f'pl.concat([frame_{LONG}.select(pl.lit(a).alias("index"), *(pl.corr(a, b).alias(b) for b in names_{LONG})) for a in names_{LONG}])',
     f'pl.concat([frame_{LONG}.filter(pl.col(a) > 0).select(pl.col(a).sum()) for a in names if a != "k" for x in "ab"])',
     f'frame_{LONG}.select(*(pl.col(c).fill_null(0).alias(c) for c in ["aaaaaaaaaa", "bbbbbbbbbbb", "cccccccccc"]))',
+    # a chain given as text (pandas code around a hand-over), a column taken between two calls
+    f'frame_{LONG}.collect().to_pandas().set_index("shop")["w"].plot.bar(color="k")',
+    f'frame_{LONG}.collect().to_pandas().groupby("k")["w"].agg(["min", "max"]).loc["a"].plot()',
 ]
 
 
