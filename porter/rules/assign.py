@@ -23,6 +23,7 @@ from porter.rules.ops import (
 )
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
+    row_labels_carried,
     floats_where_missing, mark_float_ints, nullable_mark, set_nullable_ints, with_column_updates,
 )
 from porter.rules.strings import LIST_STR, expanded_columns, list_repr
@@ -910,14 +911,38 @@ def drop(call: PandasCall, ctx: RuleContext) -> Value:
     """df.drop(columns=[...]) / df.drop("c", axis=1) -> .drop(...)."""
     frame = call.receiver
     assert isinstance(frame, Frame)
-    ctx.reject_unknown(call, "labels", "columns", "axis", positional=1)
+    ctx.reject_unknown(call, "labels", "columns", "axis", "index", positional=1)
+    if call.has("index"):
+        if call.has("columns") or call.has("labels", 0):
+            raise Unsupported("index= with labels= or columns=")
+        return _rows_dropped(frame, call.const("index", None, None, kinds=(str, int, list)), ctx)
     if call.has("columns"):
         names = call.const("columns")
     else:
         if call.const("axis", None, 0) not in (1, "columns"):
-            raise Unsupported("dropping rows by index label")
+            return _rows_dropped(frame, call.const("labels", 0, None, kinds=(str, int, list)),
+                                 ctx)
         names = call.const("labels", 0)
     return dropped(frame, column_names(names))
+
+
+def _rows_dropped(frame: Frame, labels: object, ctx: RuleContext) -> Frame:
+    """df.drop(index=labels) of a table labelled by one key column (a pivot's or groupby's
+    keys, set_index): the rows whose key is one of the labels filtered out, every such row,
+    as pandas drops every row holding the label. A row whose key is missing stays.
+    pandas raises KeyError for a label no row holds, where here nothing is dropped (0.9)."""
+    wanted = labels if isinstance(labels, list) else [labels]
+    if len(frame.index) != 1 or row_labels_carried(frame) or not wanted:
+        raise Unsupported("dropping rows by index label (a table labelled by one key column "
+                          "is ported)")
+    key = frame.index[0]
+    kinds = {str: "str", int: "int"}
+    if any(isinstance(w, bool) or kinds.get(type(w)) != frame.dtype(key) for w in wanted):
+        raise Unsupported("dropping rows by a label of another type than the key column (or "
+                          "a key of unknown type)")
+    ctx.lower("a label no row holds: pandas raises KeyError, here no row is dropped", 0.9)
+    keep = emit.unary("~", emit.col(key).method("is_in", wanted).method("fill_null", False))
+    return derive(frame, frame.code.method("filter", keep), same_rows=False)
 
 
 def dropped(frame: Frame, names: list[str]) -> Frame:

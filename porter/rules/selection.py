@@ -366,7 +366,8 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
         frame = derive(frame, code, same_rows=False)
     elif isinstance(rows, Column):
         frame = derive(frame, frame.code.method("filter", ctx.expr(rows, frame)), same_rows=False)
-    elif _one_label(rows) and isinstance(cols, Opaque) and isinstance(cols.const, str):
+    elif (_one_label(rows) or _label_read(rows, frame)) and isinstance(cols, Opaque) \
+            and isinstance(cols.const, str):
         return _labelled_value(frame, rows, cols, ctx)  # df.loc["label", "c"], as df.at
     elif (_one_label(rows) or _label_tuple(rows)) \
             and (cols is None or isinstance(cols, Opaque) and cols.const == slice(None)):
