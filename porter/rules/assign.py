@@ -972,6 +972,14 @@ def set_columns(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(frame, Frame)
     from porter.rules.selection import computed_names, data_columns
     from porter.rules.selection import LevelNames
+    given = call.args[0]
+    if isinstance(given, Scalar) and given.pytype == "names.formatted" \
+            and given.of is not None and given.of.code.text == frame.code.text:
+        # df.columns = df.columns.strftime(format) right after a pivot on a date key: the pivot
+        # named them so already (frame.columns.strftime); nothing is written
+        return replace(frame, dates_as_text=None)
+    if frame.dates_as_text is not None:
+        raise Unsupported("new names for a pivot's date columns other than their strftime")
     value = computed_names(call.args[0])  # df.columns.str.strip()...: the names as a list
     if isinstance(value, LevelNames) and value.of == frame.code:
         # df.columns = df.columns.droplevel(n) where the data decides which columns there

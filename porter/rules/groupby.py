@@ -4,6 +4,7 @@ value_counts, unique, nunique, describe."""
 from __future__ import annotations
 
 import ast
+import re
 from dataclasses import dataclass, field, replace
 from typing import Any, ClassVar, Collection
 
@@ -2123,13 +2124,21 @@ def _check_columns_key(frame: Frame, columns: str) -> None:
 
 
 def pivot_sorted(code: Code, on: str, keys: list[str], values: str | list[str], fill: Any,
-                 float_when_missing: bool) -> Code:
+                 float_when_missing: bool, dates_as_text: str | None = None) -> Code:
     """The groups (one row per combination) collected and pivoted as pandas lays the table
     out: the new columns in the order of their values (the pivot meets them sorted), the rows
     in the order of the keys; `fill` for a combination no row has, or else, for integer cells
-    (`float_when_missing`), every cell float when one is missing (pandas_unstacked)."""
+    (`float_when_missing`), every cell float when one is missing (pandas_unstacked).
+    `dates_as_text`: the key's dates written with this strftime format once sorted, the
+    names the script gives the columns next (two dates written alike meet in one cell, which
+    Polars' pivot refuses)."""
     index: str | list[str] = keys[0] if len(keys) == 1 else keys
-    code = code.method("sort", on).method("collect").method(
+    code = code.method("sort", on)
+    if dates_as_text is not None:
+        from porter.rules.datetimes import polars_strftime
+        code = code.method("with_columns", emit.col(on).attr("dt").method(
+            "to_string", polars_strftime(dates_as_text)))
+    code = code.method("collect").method(
         "pivot", on=on, index=index, values=values).method("sort", index)
     if fill is not None:
         return code.method("fill_null", fill)
@@ -2189,7 +2198,17 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("values given as a list: pandas keeps two levels of column labels")
     if not isinstance(columns, str) or not isinstance(values, str):
         raise Unsupported("one values column and one columns key only")
-    _check_columns_key(frame, columns)
+    dates_as_text = None
+    if frame.dtype(columns) in ("datetime", "date"):
+        # the dates cannot name Polars columns; the text the next statement makes of them can
+        dates_as_text = _columns_formatted_next(call, ctx)
+        if call.const("margins", None, False):
+            raise Unsupported("margins of a date columns key: pandas adds its name to the dates")
+    if dates_as_text is None:
+        _check_columns_key(frame, columns)
+    elif not {"Y", "m", "d"} <= set(re.findall(r"%(.)", dates_as_text.replace("%%", ""))):
+        ctx.lower("two dates the format writes alike (without the year, month and day) make "
+                  "pandas keep two columns of one name; Polars' pivot stops with an error", 0.9)
     keys = [index] if isinstance(index, str) else list(index or [])
     if not keys or not all(isinstance(k, str) for k in keys):
         raise Unsupported("a pivot without index keys")
@@ -2228,7 +2247,8 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
         code = code.method("drop_nulls", values)  # pandas drops a group whose value is missing
     # count cells are integers whatever the values' type (a float column's too)
     code = pivot_sorted(code, columns, keys, values, fill,
-                        float_when_missing and (value_dtype != "float" or how == "count"))
+                        float_when_missing and (value_dtype != "float" or how == "count"),
+                        dates_as_text)
     if margins:
         code = pivot_margins(code, frame, keys, columns, values, how, value_dtype,
                              margins_name, fill, float32_possible(ctx))
@@ -2243,7 +2263,54 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
                     and how in ("sum", "min", "max")):
         dtypes.append((margins_name, "float"))
     return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False,
-                 int_labels_except=int_labels, columns_name=columns, dtypes=tuple(dtypes))
+                 int_labels_except=int_labels, columns_name=columns, dtypes=tuple(dtypes),
+                 dates_as_text=dates_as_text)
+
+
+def _columns_formatted_next(call: PandasCall, ctx: RuleContext) -> str | None:
+    """The strftime format of `t.columns = t.columns.strftime("<format>")` where that is the
+    statement right after each `t = <this pivot>` of the script (the same call written
+    elsewhere too), or None. Checked on the script's text: only then does the pivot name its
+    date columns by that text at once, which nothing reads before the statement renames them."""
+    module = ctx.python_module
+    if module is None or call.node is None:
+        return None
+    try:
+        wanted = ast.unparse(ast.parse(cst.Module([]).code_for_node(call.node).strip(),
+                                       mode="eval").body)
+    except SyntaxError:
+        return None
+    found: set[str | None] = set()
+    for node in ast.walk(module):
+        for name in ("body", "orelse", "finalbody"):
+            statements = getattr(node, name, None)
+            if not isinstance(statements, list):
+                continue
+            for at, stmt in enumerate(statements):
+                if not (isinstance(stmt, ast.Assign) and len(stmt.targets) == 1
+                        and isinstance(stmt.targets[0], ast.Name)
+                        and ast.unparse(stmt.value) == wanted):
+                    continue
+                after = statements[at + 1] if at + 1 < len(statements) else None
+                found.add(_strftime_of_columns(after, stmt.targets[0].id))
+    if len(found) != 1:
+        return None
+    return found.pop()
+
+
+def _strftime_of_columns(stmt: ast.stmt | None, name: str) -> str | None:
+    """The format of `name.columns = name.columns.strftime("<format>")`, or None."""
+    columns = f"{name}.columns"
+    if not (isinstance(stmt, ast.Assign) and len(stmt.targets) == 1
+            and ast.unparse(stmt.targets[0]) == columns and isinstance(stmt.value, ast.Call)):
+        return None
+    call = stmt.value
+    if not (isinstance(call.func, ast.Attribute) and call.func.attr == "strftime"
+            and ast.unparse(call.func.value) == columns and len(call.args) == 1
+            and not call.keywords and isinstance(call.args[0], ast.Constant)
+            and isinstance(call.args[0].value, str)):
+        return None
+    return call.args[0].value
 
 
 def pivot_margins(table: Code, frame: Frame, keys: list[str], columns: str, values: str,

@@ -1768,6 +1768,10 @@ class _Walker:
         result = evaluator.dispatch(key, call, target)
         if result is frame:
             return "", [*result.sites]  # the change has no Polars form: nothing is written
+        if isinstance(result, Frame) and result.code is frame.code:
+            # the same rows and columns, known better (a pivot's columns renamed already)
+            env[owner.value] = result
+            return "", [*result.sites]
         return self.bind_changed(owner.value, frame, result, env, indent)
 
     def note_stale_series(self, name: str, frame: Frame, env: dict[str, Value]) -> None:
