@@ -18,8 +18,8 @@ from porter.rules.elementwise import body_expression
 from porter.rules.totals import pandas_median, pandas_reduce
 from porter.rules.ops import float32_possible, small_ints_possible
 from porter.rules.io_options import (
-    CATEGORY_COUNTS_FUNCTION, DIVIDE_FUNCTION, MARGINS_FUNCTION, QUANTILE_FUNCTION,
-    UNSTACKED_FUNCTION,
+    CATEGORY_COUNTS_FUNCTION, DATES_AS_TEXT_FUNCTION, DIVIDE_FUNCTION, MARGINS_FUNCTION,
+    QUANTILE_FUNCTION, UNSTACKED_FUNCTION,
 )
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, check_same_rows, column_names, column_of, derive,
@@ -2130,16 +2130,15 @@ def pivot_sorted(code: Code, on: str, keys: list[str], values: str | list[str], 
     in the order of the keys; `fill` for a combination no row has, or else, for integer cells
     (`float_when_missing`), every cell float when one is missing (pandas_unstacked).
     `dates_as_text`: the key's dates written with this strftime format once sorted, the
-    names the script gives the columns next (two dates written alike meet in one cell, which
-    Polars' pivot refuses)."""
+    names the script gives the columns next (pandas_dates_as_text: two dates written alike
+    stop the script, where pandas keeps two columns of one name)."""
     index: str | list[str] = keys[0] if len(keys) == 1 else keys
-    code = code.method("sort", on)
+    code = code.method("sort", on).method("collect")
     if dates_as_text is not None:
         from porter.rules.datetimes import polars_strftime
-        code = code.method("with_columns", emit.col(on).attr("dt").method(
-            "to_string", polars_strftime(dates_as_text)))
-    code = code.method("collect").method(
-        "pivot", on=on, index=index, values=values).method("sort", index)
+        code = code.method("pipe", emit.atom(DATES_AS_TEXT_FUNCTION), on,
+                           polars_strftime(dates_as_text))
+    code = code.method("pivot", on=on, index=index, values=values).method("sort", index)
     if fill is not None:
         return code.method("fill_null", fill)
     if float_when_missing:
@@ -2208,7 +2207,8 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
         _check_columns_key(frame, columns)
     elif not {"Y", "m", "d"} <= set(re.findall(r"%(.)", dates_as_text.replace("%%", ""))):
         ctx.lower("two dates the format writes alike (without the year, month and day) make "
-                  "pandas keep two columns of one name; Polars' pivot stops with an error", 0.9)
+                  "pandas keep two columns of one name; the conversion stops with an error "
+                  "(pandas_dates_as_text)", 0.9)
     keys = [index] if isinstance(index, str) else list(index or [])
     if not keys or not all(isinstance(k, str) for k in keys):
         raise Unsupported("a pivot without index keys")

@@ -323,6 +323,22 @@ def pandas_pivot_margins(table, frame, index, columns, values, total, name="All"
     )
 """
 
+# A function, defined once at the top of a converted script, that writes the date key of a
+# pivot's groups as the text the script names the pivoted columns by next.
+DATES_AS_TEXT_FUNCTION = "pandas_dates_as_text"
+DATES_AS_TEXT_DEFINITION = """\
+def pandas_dates_as_text(groups, key, fmt):
+    \"\"\"The groups of a pivot with their date `key` written with the strftime format `fmt`
+    (Polars' to_string of each date): the names the script gives the pivoted columns next
+    (df.columns = df.columns.strftime(fmt)). Two dates written alike would make pandas keep
+    two columns of one name, which a Polars frame cannot hold: that stops here.\"\"\"
+    dates = groups.get_column(key).unique()
+    if dates.dt.to_string(fmt).n_unique() != dates.len():
+        raise ValueError(f"two dates are written alike with {fmt!r}: pandas keeps two columns "
+                         "of one name, a Polars frame cannot")
+    return groups.with_columns(pl.col(key).dt.to_string(fmt))
+"""
+
 # A function, defined once at the top of a converted script, that adds crosstab's margins
 # (margins=True) to a table of counts of one index key, as pandas adds them.
 COUNT_MARGINS_FUNCTION = "pandas_count_margins"
