@@ -80,8 +80,10 @@ def crosstab(call: PandasCall, ctx: RuleContext) -> Value:
     count divided once by its total); margins=True adds the total column and row (margins_name)
     to the counts, and with normalize the margins pandas keeps; values= with aggfunc mean or
     median (float cells, a group whose value is missing dropped, as pandas drops it), and sum /
-    min / max of a float column; several index Series.
-    Caveats: several columns Series (pandas keeps two levels of column labels), dropna=False, normalize or margins with values, margins with several keys or an
+    min / max of a float column (sums and means added as pandas adds them, pivot_groups), with
+    margins as pivot_table's (pandas_pivot_margins); several index Series.
+    Caveats: several columns Series (pandas keeps two levels of column labels), dropna=False,
+    normalize with values, margins of a median with values, margins with several keys or an
     index key not known to be text, and sum / min / max / count of a column not known to be
     float (pandas makes the cells float when one combination is missing) are TODOs. The new
     columns are named by their values as text (handed to pandas, those of an integer key get

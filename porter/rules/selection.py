@@ -775,10 +775,11 @@ def columns(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("frame.columns.strftime")
 def columns_strftime(call: PandasCall, ctx: RuleContext) -> Value:
-    """df.columns.strftime(format) of a pivot's date columns, in `df.columns =
-    df.columns.strftime(format)` right after the pivot -> nothing: the pivot named the columns
-    by the dates written with that format (Polars' dt.to_string, the directives checked to
-    write what pandas writes), in the order of the dates.
+    """df.columns.strftime(format) of a pivot's date columns -> nothing (the pivot's names).
+
+    In `df.columns = df.columns.strftime(format)` right after the pivot: the pivot named the
+    columns by the dates written with that format (Polars' dt.to_string, the directives
+    checked to write what pandas writes), in the order of the dates.
 
     Caveats: any other use of a pivot's date columns is a TODO (the pivot itself stays pandas
     where no such statement follows it)."""
