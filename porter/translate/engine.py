@@ -1768,8 +1768,9 @@ class _Walker:
         result = evaluator.dispatch(key, call, target)
         if result is frame:
             return "", [*result.sites]  # the change has no Polars form: nothing is written
-        if isinstance(result, Frame) and result.code is frame.code:
-            # the same rows and columns, known better (a pivot's columns renamed already)
+        if isinstance(result, Frame) and result.code is frame.code \
+                and frame.dates_as_text is not None and result.dates_as_text is None:
+            # a pivot's date columns, named already as this statement renames them
             env[owner.value] = result
             return "", [*result.sites]
         return self.bind_changed(owner.value, frame, result, env, indent)
