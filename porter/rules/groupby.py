@@ -2252,7 +2252,9 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     if margins:
         code = pivot_margins(code, frame, keys, columns, values, how, value_dtype,
                              margins_name, fill, float32_possible(ctx))
-    ctx.lower("the new columns are named by their values as text (pandas keeps the values)", 0.95)
+    if dates_as_text is None:  # (else named as the next statement names them)
+        ctx.lower("the new columns are named by their values as text (pandas keeps the values)",
+                  0.95)
     # pandas code given the table finds the columns by the key's values (pv[2024])
     int_labels = (*keys, *([margins_name] if margins else [])) \
         if frame.dtype(columns) == "int" else None
