@@ -393,6 +393,7 @@ PIVOT = FRAME.replace('"n": [1, 2, 3, 4, 5, 6, 7, 8, 8],',
     'df.pivot_table(index=["shop", "t"], columns="month", values="n", aggfunc="min", fill_value=0)',
     'df.pivot_table(values="qty", index="t", columns="shop", aggfunc="mean", fill_value=0.5)',
     'df[df["n"] > 100].pivot_table(index="shop", columns="month", values="n", aggfunc="sum", fill_value=0)',
+    'df.pivot_table(index="shop", columns="month", values="qty", margins=True)',
 ])
 def test_pivot_table_matches_pandas(call: str) -> None:
     # a missing key drops its row; a group whose mean is missing is dropped; the months come
@@ -425,7 +426,7 @@ def test_pivot_table_without_fill_value_has_pandas_types(call: str) -> None:
 
 @pytest.mark.parametrize("call", [
     'df.pivot_table(index="shop", columns="month", values="t", aggfunc="max")',
-    'df.pivot_table(index="shop", columns="month", values="qty", margins=True)',
+    'df.pivot_table(index="shop", columns="month", values="qty", aggfunc="median", margins=True)',
     'df.pivot_table(index="shop", columns="month")',
     'df.pivot_table(index="shop", columns=["month", "t"], values="n", fill_value=0)',
     'df.pivot_table(index="shop", columns="month", values="n", aggfunc=["sum", "max"], fill_value=0)',

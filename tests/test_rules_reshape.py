@@ -109,10 +109,21 @@ def test_crosstab_of_number_labels_lowers_confidence() -> None:
     assert site.confidence == 0.95 and "as text" in site.message
 
 
+@pytest.mark.parametrize("call", [
+    'pd.crosstab(df["shop"], df["kind"], margins=True, values=df["qty"], aggfunc="mean")',
+    'pd.crosstab(df["shop"], df["kind"], margins=True, values=df["qty"], aggfunc="sum")',
+    'pd.crosstab(df["shop"], df["kind"], margins=True, values=df["qty"], aggfunc="min", '
+    'margins_name="Σ")',
+])
+def test_crosstab_margins_with_values_match_pandas(call: str) -> None:
+    result = differential(FRAME + f"result = {call}\n")
+    assert "pandas_pivot_margins" in result.converted_text
+
+
 @pytest.mark.parametrize("call,reason", [
     ('pd.crosstab(df["size"], df["kind"], margins=True)', "margins"),
-    ('pd.crosstab(df["shop"], df["kind"], margins=True, values=df["qty"], aggfunc="mean")',
-     "margins"),
+    ('pd.crosstab(df["shop"], df["kind"], margins=True, values=df["qty"], aggfunc="median")',
+     "margins of median"),
     ('pd.crosstab([df["shop"], df["size"]], df["kind"], margins=True)', "margins"),
     ('pd.crosstab(df["shop"], df["kind"], dropna=False)', "dropna=False"),
     # pandas writes a header row per columns key (to_csv); Polars has one level of names

@@ -23,6 +23,7 @@ from porter.rules.ops import (
 )
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
+    row_labels_carried,
     floats_where_missing, mark_float_ints, nullable_mark, set_nullable_ints, with_column_updates,
 )
 from porter.rules.strings import LIST_STR, expanded_columns, list_repr
@@ -910,14 +911,38 @@ def drop(call: PandasCall, ctx: RuleContext) -> Value:
     """df.drop(columns=[...]) / df.drop("c", axis=1) -> .drop(...)."""
     frame = call.receiver
     assert isinstance(frame, Frame)
-    ctx.reject_unknown(call, "labels", "columns", "axis", positional=1)
+    ctx.reject_unknown(call, "labels", "columns", "axis", "index", positional=1)
+    if call.has("index"):
+        if call.has("columns") or call.has("labels", 0):
+            raise Unsupported("index= with labels= or columns=")
+        return _rows_dropped(frame, call.const("index", None, None, kinds=(str, int, list)), ctx)
     if call.has("columns"):
         names = call.const("columns")
     else:
         if call.const("axis", None, 0) not in (1, "columns"):
-            raise Unsupported("dropping rows by index label")
+            return _rows_dropped(frame, call.const("labels", 0, None, kinds=(str, int, list)),
+                                 ctx)
         names = call.const("labels", 0)
     return dropped(frame, column_names(names))
+
+
+def _rows_dropped(frame: Frame, labels: object, ctx: RuleContext) -> Frame:
+    """df.drop(index=labels) of a table labelled by one key column (a pivot's or groupby's
+    keys, set_index): the rows whose key is one of the labels filtered out, every such row,
+    as pandas drops every row holding the label. A row whose key is missing stays.
+    pandas raises KeyError for a label no row holds, where here nothing is dropped (0.9)."""
+    wanted = labels if isinstance(labels, list) else [labels]
+    if len(frame.index) != 1 or row_labels_carried(frame) or not wanted:
+        raise Unsupported("dropping rows by index label (a table labelled by one key column "
+                          "is ported)")
+    key = frame.index[0]
+    kinds = {str: "str", int: "int"}
+    if any(isinstance(w, bool) or kinds.get(type(w)) != frame.dtype(key) for w in wanted):
+        raise Unsupported("dropping rows by a label of another type than the key column (or "
+                          "a key of unknown type)")
+    ctx.lower("a label no row holds: pandas raises KeyError, here no row is dropped", 0.9)
+    keep = emit.unary("~", emit.col(key).method("is_in", wanted).method("fill_null", False))
+    return derive(frame, frame.code.method("filter", keep), same_rows=False)
 
 
 def dropped(frame: Frame, names: list[str]) -> Frame:
@@ -947,6 +972,14 @@ def set_columns(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(frame, Frame)
     from porter.rules.selection import computed_names, data_columns
     from porter.rules.selection import LevelNames
+    given = call.args[0]
+    if isinstance(given, Scalar) and given.pytype == "names.formatted" \
+            and given.of is not None and given.of.code.text == frame.code.text:
+        # df.columns = df.columns.strftime(format) right after a pivot on a date key: the pivot
+        # named them so already (frame.columns.strftime); nothing is written
+        return replace(frame, dates_as_text=None)
+    if frame.dates_as_text is not None:
+        raise Unsupported("new names for a pivot's date columns other than their strftime")
     value = computed_names(call.args[0])  # df.columns.str.strip()...: the names as a list
     if isinstance(value, LevelNames) and value.of == frame.code:
         # df.columns = df.columns.droplevel(n) where the data decides which columns there

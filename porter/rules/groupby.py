@@ -4,6 +4,7 @@ value_counts, unique, nunique, describe."""
 from __future__ import annotations
 
 import ast
+import re
 from dataclasses import dataclass, field, replace
 from typing import Any, ClassVar, Collection
 
@@ -17,8 +18,8 @@ from porter.rules.elementwise import body_expression
 from porter.rules.totals import pandas_median, pandas_reduce
 from porter.rules.ops import float32_possible, small_ints_possible
 from porter.rules.io_options import (
-    CATEGORY_COUNTS_FUNCTION, DIVIDE_FUNCTION, MARGINS_FUNCTION, QUANTILE_FUNCTION,
-    UNSTACKED_FUNCTION,
+    CATEGORY_COUNTS_FUNCTION, DATES_AS_TEXT_FUNCTION, DIVIDE_FUNCTION, MARGINS_FUNCTION,
+    QUANTILE_FUNCTION, UNSTACKED_FUNCTION,
 )
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, check_same_rows, column_names, column_of, derive,
@@ -259,6 +260,28 @@ def in_key_order_flag(grouped: Grouped, exprs: list[Code],
     # a row with any key missing is dropped by pandas (id -1): it must come first
     complete = emit.unary("~", emit.pl("any_horizontal", emit.pl("col", *keys).method("is_null")))
     return emit.when(complete, emit.pl("struct", *keys)).method("is_sorted")
+
+
+def pivot_groups(source: Code, groups: list[str], value: str, expr: Code) -> Code:
+    """The groups of a pivot (pivot_table, crosstab with values=): `source` without the rows
+    missing a key, grouped by `groups`, `expr` (agg_expr of the column `value`) per group. A
+    float sum or mean is added as pandas adds it (agg_with_sums): pandas 3.1 groups by
+    monotonic ids and adds with numpy's reduceat where the rows come sorted by the keys (those
+    missing a key first) and the column holds no missing value at all (NaN on a row missing a
+    key counts too), and with its compensated sum otherwise: the flag is computed on the rows
+    before any is dropped."""
+    split = _own_group_sum(expr)
+    if split is None or split[1] == WHOLE_FRAME:
+        return agg_with_sums(source.method("drop_nulls", groups).method("group_by", groups),
+                             expr)
+    complete = emit.unary("~", emit.pl("any_horizontal", emit.pl("col", *groups).method("is_null")))
+    ordered = emit.when(complete, emit.pl("struct", *groups)).method("is_sorted") \
+        if len(groups) > 1 else emit.col(groups[0]).method("is_sorted")
+    present = emit.unary("~", emit.col(value).method("fill_nan", None).method("is_null")
+                         .method("any"))
+    flagged = source.method("with_columns", **{IN_KEY_ORDER: emit.binop(ordered, "&", present)})
+    return agg_with_sums(flagged.method("drop_nulls", groups).method("group_by", groups), expr,
+                         in_key_order=IN_KEY_ORDER)
 
 
 MIN_COUNT_FLAG = "_porter_min_count_"
@@ -2149,14 +2172,21 @@ def _check_columns_key(frame: Frame, columns: str) -> None:
 
 
 def pivot_sorted(code: Code, on: str, keys: list[str], values: str | list[str], fill: Any,
-                 float_when_missing: bool) -> Code:
+                 float_when_missing: bool, dates_as_text: str | None = None) -> Code:
     """The groups (one row per combination) collected and pivoted as pandas lays the table
     out: the new columns in the order of their values (the pivot meets them sorted), the rows
     in the order of the keys; `fill` for a combination no row has, or else, for integer cells
-    (`float_when_missing`), every cell float when one is missing (pandas_unstacked)."""
+    (`float_when_missing`), every cell float when one is missing (pandas_unstacked).
+    `dates_as_text`: the key's dates written with this strftime format once sorted, the
+    names the script gives the columns next (pandas_dates_as_text: two dates written alike
+    stop the script, where pandas keeps two columns of one name)."""
     index: str | list[str] = keys[0] if len(keys) == 1 else keys
-    code = code.method("sort", on).method("collect").method(
-        "pivot", on=on, index=index, values=values).method("sort", index)
+    code = code.method("sort", on).method("collect")
+    if dates_as_text is not None:
+        from porter.rules.datetimes import polars_strftime
+        code = code.method("pipe", emit.atom(DATES_AS_TEXT_FUNCTION), on,
+                           polars_strftime(dates_as_text))
+    code = code.method("pivot", on=on, index=index, values=values).method("sort", index)
     if fill is not None:
         return code.method("fill_null", fill)
     if float_when_missing:
@@ -2187,7 +2217,7 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     keys; fill_value fills the missing cells; without it, sum, count, min and max of numbers
     turn every cell float when one is missing, as pandas does (pandas_unstacked decides on the
     pivoted table); the index keys stay label columns; margins=True of one text index key,
-    of whole numbers or a count (pandas_pivot_margins: the total column and row last, computed
+    of whole numbers or a count (pandaspivot_margins: the total column and row last, computed
     as pandas computes them).
     Caveats: one values column and one columns key; sum, min and max of a column not known to
     be numbers without fill_value, margins of several index keys, of a key not known to be
@@ -2215,7 +2245,18 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("values given as a list: pandas keeps two levels of column labels")
     if not isinstance(columns, str) or not isinstance(values, str):
         raise Unsupported("one values column and one columns key only")
-    _check_columns_key(frame, columns)
+    dates_as_text = None
+    if frame.dtype(columns) in ("datetime", "date"):
+        # the dates cannot name Polars columns; the text the next statement makes of them can
+        dates_as_text = _columns_formatted_next(call, ctx)
+        if call.const("margins", None, False):
+            raise Unsupported("margins of a date columns key: pandas adds its name to the dates")
+    if dates_as_text is None:
+        _check_columns_key(frame, columns)
+    elif not {"Y", "m", "d"} <= set(re.findall(r"%(.)", dates_as_text.replace("%%", ""))):
+        ctx.lower("two dates the format writes alike (without the year, month and day) make "
+                  "pandas keep two columns of one name; the conversion stops with an error "
+                  "(pandas_dates_as_text)", 0.9)
     keys = [index] if isinstance(index, str) else list(index or [])
     if not keys or not all(isinstance(k, str) for k in keys):
         raise Unsupported("a pivot without index keys")
@@ -2248,46 +2289,114 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     if absent:
         raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
     groups = [*keys, columns]
-    code = agg_with_sums(frame.code.method("drop_nulls", groups).method("group_by", groups),
-                         agg_expr(emit.col(values), how, value_dtype, float32=float32_possible(ctx)))
+    code = pivot_groups(frame.code, groups, values,
+                        agg_expr(emit.col(values), how, value_dtype, float32=float32_possible(ctx)))
     if how in ("mean", "median", "numpy_median", "min", "max"):
         code = code.method("drop_nulls", values)  # pandas drops a group whose value is missing
     # count cells are integers whatever the values' type (a float column's too)
     code = pivot_sorted(code, columns, keys, values, fill,
-                        float_when_missing and (value_dtype != "float" or how == "count"))
+                        float_when_missing and (value_dtype != "float" or how == "count"),
+                        dates_as_text)
     if margins:
-        code = _pivot_margins(code, frame, keys, columns, values, how, value_dtype,
-                              margins_name, fill)
-    ctx.lower("the new columns are named by their values as text (pandas keeps the values)", 0.95)
+        code = pivot_margins(code, frame, keys, columns, values, how, value_dtype,
+                             margins_name, fill, float32_possible(ctx))
+    if dates_as_text is None:  # (else named as the next statement names them)
+        ctx.lower("the new columns are named by their values as text (pandas keeps the values)",
+                  0.95)
     # pandas code given the table finds the columns by the key's values (pv[2024])
     int_labels = (*keys, *([margins_name] if margins else [])) \
         if frame.dtype(columns) == "int" else None
+    # the index keys keep their type (the total row's label is text, as the keys); the
+    # total column is float where every cell is (floats summed, means)
+    dtypes = [(k, frame.dtype(k)) for k in keys if frame.dtype(k) is not None]
+    if margins and (how in ("mean", "median", "numpy_median") or value_dtype == "float"
+                    and how in ("sum", "min", "max")):
+        dtypes.append((margins_name, "float"))
     return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False,
-                 int_labels_except=int_labels, columns_name=columns)
+                 int_labels_except=int_labels, columns_name=columns, dtypes=tuple(dtypes),
+                 dates_as_text=dates_as_text)
 
 
-def _pivot_margins(table: Code, frame: Frame, keys: list[str], columns: str, values: str,
-                   how: str, dtype: str | None, name: str, fill: Any) -> Code:
-    """margins=True: the pivoted table given to pandas_pivot_margins, which adds the total
-    column and row `name` as pandas computes them (each over the rows where neither key nor
+def _columns_formatted_next(call: PandasCall, ctx: RuleContext) -> str | None:
+    """The strftime format of `t.columns = t.columns.strftime("<format>")` where that is the
+    statement right after each `t = <this pivot>` of the script (the same call written
+    elsewhere too), or None. Checked on the script's text: only then does the pivot name its
+    date columns by that text at once, which nothing reads before the statement renames them."""
+    module = ctx.python_module
+    if module is None or call.node is None:
+        return None
+    try:
+        wanted = ast.unparse(ast.parse(cst.Module([]).code_for_node(call.node).strip(),
+                                       mode="eval").body)
+    except SyntaxError:
+        return None
+    found: set[str | None] = set()
+    for node in ast.walk(module):
+        for name in ("body", "orelse", "finalbody"):
+            statements = getattr(node, name, None)
+            if not isinstance(statements, list):
+                continue
+            for at, stmt in enumerate(statements):
+                if not (isinstance(stmt, ast.Assign) and len(stmt.targets) == 1
+                        and isinstance(stmt.targets[0], ast.Name)
+                        and ast.unparse(stmt.value) == wanted):
+                    continue
+                after = statements[at + 1] if at + 1 < len(statements) else None
+                found.add(_strftime_of_columns(after, stmt.targets[0].id))
+    if len(found) != 1:
+        return None
+    return found.pop()
+
+
+def _strftime_of_columns(stmt: ast.stmt | None, name: str) -> str | None:
+    """The format of `name.columns = name.columns.strftime("<format>")`, or None."""
+    columns = f"{name}.columns"
+    if not (isinstance(stmt, ast.Assign) and len(stmt.targets) == 1
+            and ast.unparse(stmt.targets[0]) == columns and isinstance(stmt.value, ast.Call)):
+        return None
+    call = stmt.value
+    if not (isinstance(call.func, ast.Attribute) and call.func.attr == "strftime"
+            and ast.unparse(call.func.value) == columns and len(call.args) == 1
+            and not call.keywords and isinstance(call.args[0], ast.Constant)
+            and isinstance(call.args[0].value, str)):
+        return None
+    return call.args[0].value
+
+
+def pivot_margins(table: Code, frame: Frame, keys: list[str], columns: str, values: str,
+                   how: str, dtype: str | None, name: str, fill: Any, float32: bool) -> Code:
+    """margins=True: the pivoted table given to pandaspivot_margins, which adds the total
+    column and row `name` as pandas computes them (each over the rows where no key and not
     the value is missing, a row of totals last and a column last, a missing total making an
-    integer column float)."""
-    if len(keys) != 1 or frame.dtype(keys[0]) != "str":
-        raise Unsupported("margins with several index keys or a key not known to be text "
-                          "(the total row's label goes into it)")
-    if how == "count" and dtype is None or how != "count" and dtype != "int":
-        # float totals: pandas adds floats in its own order (a compensated sum per group)
-        raise Unsupported(f"margins of {how} of a column not known to be whole numbers")
-    total = agg_expr(emit.col(values), how, dtype)
-    if "pandas_" in total.text:
-        raise Unsupported(f"margins of {how}")
+    integer column float). Sums and means of floats are added as pandas adds them: each row's
+    and column's as its groupby does (pandas_group_sums), the grand total as its Series.sum
+    or mean (pandas_reduce)."""
+    if not all(frame.dtype(k) == "str" for k in keys):
+        raise Unsupported("margins of an index key not known to be text (the total row's "
+                          "label goes into it, and \"\" into the other keys)")
     kwargs: dict[str, Any] = {}
+    if how == "count" and dtype is not None or how != "count" and dtype == "int" \
+            or how in ("min", "max") and dtype == "float":
+        # whole numbers are added exactly in any order; a count, min and max are exact
+        total = agg_expr(emit.col(values), how, dtype)
+        if "pandas_" in total.text:
+            raise Unsupported(f"margins of {how}")
+    elif how in ("sum", "mean") and dtype == "float" and not float32:
+        # pandas adds each row's and column's floats as its groupby does, the grand total as
+        # its Series.sum / mean does (numpy's pairwise sum): each order ends in other digits
+        total = pandas_reduce(emit.col(values), how)
+        kwargs["group_sums"] = emit.atom(GROUP_SUMS_FUNCTION)
+        if how == "mean":
+            kwargs["mean"] = True
+    else:
+        raise Unsupported(f"margins of {how} of a column not known to be whole numbers or "
+                          "floats (floats: sum, mean, min, max and count)")
     if name != "All":
         kwargs["name"] = name
     if fill is not None:
         kwargs["fill_value"] = fill
-    return table.method("pipe", emit.atom(MARGINS_FUNCTION), frame.code, keys[0], columns,
-                        values, total, **kwargs)
+    return table.method("pipe", emit.atom(MARGINS_FUNCTION), frame.code, emit.names_arg(keys),
+                        columns, values, total, **kwargs)
 
 
 _PIVOT_ROW_FUNCTIONS = ("sum", "mean", "median", "min", "max", "count")

@@ -366,7 +366,8 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
         frame = derive(frame, code, same_rows=False)
     elif isinstance(rows, Column):
         frame = derive(frame, frame.code.method("filter", ctx.expr(rows, frame)), same_rows=False)
-    elif _one_label(rows) and isinstance(cols, Opaque) and isinstance(cols.const, str):
+    elif (_one_label(rows) or _label_read(rows, frame)) and isinstance(cols, Opaque) \
+            and isinstance(cols.const, str):
         return _labelled_value(frame, rows, cols, ctx)  # df.loc["label", "c"], as df.at
     elif (_one_label(rows) or _label_tuple(rows)) \
             and (cols is None or isinstance(cols, Opaque) and cols.const == slice(None)):
@@ -758,6 +759,10 @@ def columns(call: PandasCall, ctx: RuleContext) -> Value:
                           for n in names)
         return Scalar(emit.atom(f"[{items}]"), pytype="list", of=frame)
     names = data_columns(frame).method("collect_schema").method("names")
+    if frame.dates_as_text is not None:
+        # a pivot's date columns, named already by the text the statement after the pivot
+        # makes of them (df.columns = df.columns.strftime(...)): only that reads them
+        return Scalar(names, pytype="names.dates", of=frame)
     if frame.int_labels_except is not None:
         # a pivot on an integer key: pandas' labels are the key's values (2024), Polars' their
         # text ("2024"); selections by them find the text again (_by_text)
@@ -766,6 +771,25 @@ def columns(call: PandasCall, ctx: RuleContext) -> Value:
                                 f".isdecimal() else c for c in {names.text}]"),
                       pytype="list", of=frame)
     return Scalar(names, pytype="list[str]", of=frame)
+
+
+@rule("frame.columns.strftime")
+def columns_strftime(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.columns.strftime(format) of a pivot's date columns -> nothing (the pivot's names).
+
+    In `df.columns = df.columns.strftime(format)` right after the pivot: the pivot named the
+    columns by the dates written with that format (Polars' dt.to_string, the directives
+    checked to write what pandas writes), in the order of the dates.
+
+    Caveats: any other use of a pivot's date columns is a TODO (the pivot itself stays pandas
+    where no such statement follows it)."""
+    names = call.receiver
+    assert isinstance(names, Scalar) and isinstance(names.of, Frame)
+    ctx.reject_unknown(call, "date_format", positional=1)
+    fmt = call.const("date_format", 0, None, kinds=(str,))
+    if names.pytype != "names.dates" or fmt != names.of.dates_as_text:
+        raise ctx.todo("strftime of columns other than a pivot's dates named by it")
+    return Scalar(names.code, pytype="names.formatted", of=names.of)
 
 
 @rule("frame.columns.droplevel")

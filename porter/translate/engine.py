@@ -1768,6 +1768,11 @@ class _Walker:
         result = evaluator.dispatch(key, call, target)
         if result is frame:
             return "", [*result.sites]  # the change has no Polars form: nothing is written
+        if isinstance(result, Frame) and result.code is frame.code \
+                and frame.dates_as_text is not None and result.dates_as_text is None:
+            # a pivot's date columns, named already as this statement renames them
+            env[owner.value] = result
+            return "", [*result.sites]
         return self.bind_changed(owner.value, frame, result, env, indent)
 
     def note_stale_series(self, name: str, frame: Frame, env: dict[str, Value]) -> None:

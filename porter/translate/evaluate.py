@@ -486,7 +486,7 @@ class Evaluator:
         if isinstance(receiver, (Column, Frame, Grouped, Accessor, Indexer, Resampled, Indexed)):
             return self.todo(f"{_prefix(receiver)}.{name}", PandasCall(receiver, name, node=node),
                              node, "porter has no rule for this attribute")
-        if isinstance(receiver, Scalar) and (receiver.pytype == "list[str]" or
+        if isinstance(receiver, Scalar) and (receiver.pytype in ("list[str]", "names.dates") or
                                              receiver.pytype == "list" and receiver.of is not None):
             return self.column_names_attribute(receiver, name, node)
         if isinstance(receiver, Scalar) and receiver.pytype == "datetime" and name in _TIMESTAMP_ONLY:
@@ -638,6 +638,9 @@ class Evaluator:
             return self.generic(node)
         if attr == "str":  # string methods on the names (rules/selection.py, columns_str)
             return replace(names, pytype="names.str")
+        if attr == "strftime" and names.pytype == "names.dates":
+            # a pivot's date columns written as text (rules/selection.py, columns_strftime)
+            return BoundMethod(names.code, receiver=names, name=attr)
         if attr == "droplevel" and isinstance(names.of, Frame) and names.of.column_pairs:
             # the (column, function) pairs of MultiIndex columns (rules/selection.py)
             # the names of a level are exact: the list of pairs' lowered confidence goes
@@ -680,7 +683,7 @@ class Evaluator:
         if lookup is not None:
             return lookup
         if isinstance(func, BoundMethod) and isinstance(func.receiver, Scalar) \
-                and func.receiver.pytype not in ("names.str", "names.pairs"):
+                and func.receiver.pytype not in ("names.str", "names.pairs", "names.dates"):
             return func.receiver  # tolist() of the column names: already a list
         if not isinstance(func, (BoundMethod, Module)):
             return self.generic(node)
@@ -1598,7 +1601,7 @@ def _prefix(value: Value) -> str:
         return f"{'series' if value.column is not None else 'frame'}.{value.kind}"
     if isinstance(value, Scalar) and value.pytype == "names.str":
         return "frame.columns.str"
-    if isinstance(value, Scalar) and value.pytype == "names.pairs":
+    if isinstance(value, Scalar) and value.pytype in ("names.pairs", "names.dates"):
         return "frame.columns"
     return "value"
 
