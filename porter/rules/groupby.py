@@ -2028,6 +2028,56 @@ def series_describe(call: PandasCall, ctx: RuleContext) -> Value:
                   refs=frozenset({name}))
 
 
+@rule("groupby.describe")
+def group_describe(call: PandasCall, ctx: RuleContext) -> Value:
+    """g["c"].describe() of numbers -> count, mean, std, min, 25%, 50%, 75%, max per group in
+    one LazyGroupBy.agg, a frame labelled by the keys.
+
+    Handles: pandas describes each group's Series as Series.describe does, so each statistic
+    is computed as series.describe computes it: count as a float, mean and std added as numpy
+    adds (pandas_reduce; two passes, not the Welford's method of groupby.std), percentiles
+    interpolated as numpy (pandas_quantile); missing values (NaN too) skipped, a group without
+    values counted 0 with the others missing; every statistic a float; keys sorted, sort=,
+    dropna=, as_index= as the other aggregations.
+    Caveats: a frame's groupby (pandas' columns are a MultiIndex of column and statistic),
+    text, True/False and dates (other statistics in pandas), a column of unknown type, and
+    percentiles= / include= / exclude= are TODOs. A frame without rows keeps its key columns
+    here, where pandas gives an unnamed empty index (0.95).
+    """
+    grouped = grouped_of(call)
+    ctx.reject_unknown(call)
+    if not grouped.single or not grouped.selection or len(grouped.selection) != 1:
+        raise Unsupported("describe of a frame's groups: pandas labels the columns by a "
+                          "MultiIndex of the column and the statistic")
+    name = grouped.selection[0]
+    dtype = grouped.frame.dtype(name)
+    if dtype not in ("int", "float"):
+        raise Unsupported("describe of a column not known to hold numbers (pandas describes "
+                          "text, True/False and dates with other statistics)")
+    ctx.lower("a frame without rows: pandas describes it with an unnamed empty index (no key "
+              "column, as_index=False too), where porter keeps the key columns", 0.95)
+    values = emit.col(name)
+    if dtype == "float":
+        values = values.method("fill_nan", None)  # NaN is a missing value to pandas
+    as_float = emit.atom("pl.Float64")
+    stats: list[tuple[str, Code]] = [
+        ("count", values.method("count").method("cast", as_float)),
+        # each group is a Series described by Series.describe: numpy's pairwise sums and the
+        # two-pass std of nanops (pandas_reduce), not groupby.std's running sums
+        ("mean", pandas_reduce(values.method("cast", as_float), "mean")),
+        ("std", pandas_reduce(values.method("cast", as_float), "std")),
+        ("min", values.method("min").method("cast", as_float)),
+        # numpy's interpolation to the last bit, and the sign of a zero (pandas_quantile)
+        ("25%", emit.call(QUANTILE_FUNCTION, values, 0.25)),
+        ("50%", emit.call(QUANTILE_FUNCTION, values, 0.5)),
+        ("75%", emit.call(QUANTILE_FUNCTION, values, 0.75)),
+        ("max", values.method("max").method("cast", as_float)),
+    ]
+    names = [label for label, _ in stats]
+    exprs = [expr.method("alias", label) for label, expr in stats]
+    return aggregate(grouped, exprs, names, ctx, dtypes=["float"] * len(names))
+
+
 @rule("series.quantile")
 def series_quantile(call: PandasCall, ctx: RuleContext) -> Value:
     """Series.quantile(q) -> select(pandas_quantile(expr, q)).collect().item().
