@@ -577,7 +577,11 @@ class Evaluator:
                         ok = False
                         return updated
                     return cst.parse_expression(handover.to_pandas(named).wrapped(emit.ATOM))
-                if isinstance(named, (Grouped, Accessor, Indexer, Parts)):
+                if isinstance(named, Indexed) and not named.grouped \
+                        and named.frame.labels_intact and not named.frame.index:
+                    # set_index(k) of a frame in a name: pandas' frame labelled by k
+                    return cst.parse_expression(handover.to_pandas(named).wrapped(emit.ATOM))
+                if isinstance(named, (Grouped, Accessor, Indexer, Parts, Indexed)):
                     ok = False
                 return updated
 
