@@ -1577,10 +1577,98 @@ def _nan_when_empty(column: Column, how: str, expr: Code, ctx: RuleContext) -> C
     return expr
 
 
+def _has_bins(call: PandasCall) -> bool:
+    bins = call.kwargs.get("bins")
+    return bins is not None and not (isinstance(bins, Opaque) and bins.is_const and bins.const is None)
+
+
+def interval_labels(edges: list[int | float]) -> list[str]:
+    """The text of the Interval labels pd.cut(values, edges, include_lowest=True) gives its
+    bins, as pandas writes them ("(0.999, 1.5]": the first edge moved down by 10**-3, pandas'
+    display precision, and the edges rounded to it): computed by pandas itself from the edges,
+    which are literal numbers."""
+    import pandas as pd
+
+    categories = pd.cut(pd.Series([], dtype="float64"), edges, include_lowest=True).cat.categories
+    return [str(c) for c in categories]
+
+
+def _literal_edges(call: PandasCall, column: Column) -> list[int | float]:
+    """value_counts(bins=[edges]): the edges, a literal list of increasing numbers, of a
+    column of numbers; anything else a TODO saying why."""
+    bins = call.const("bins", None, None, kinds=(list, tuple, int))
+    if isinstance(bins, int) and not isinstance(bins, bool):
+        raise Unsupported(
+            "bins as a number of bins: pandas counts pd.cut(values, n, include_lowest=True), "
+            "whose edges come from the data (min and max, widened by 0.1%) and whose Interval "
+            "labels round them for display ((0.0891, 3.4]); porter ports literal edges only")
+    if not isinstance(bins, (list, tuple)) or len(bins) < 2 or not all(
+            isinstance(b, (int, float)) and not isinstance(b, bool) and b == b
+            and abs(b) != float("inf") for b in bins):
+        raise Unsupported("bins other than a literal list of finite numbers")
+    if any(a >= b for a, b in zip(bins, bins[1:])):
+        raise Unsupported("bins that do not increase (pandas raises)")
+    if column.dtype not in ("int", "float"):
+        raise Unsupported("bins of a column not known to hold numbers (pandas raises on text)")
+    return list(bins)
+
+
+def _binned_counts(call: PandasCall, column: Column, ctx: RuleContext) -> Value:
+    """s.value_counts(bins=[edges]) -> the rows cut into the bins as pd.cut(include_lowest=True)
+    cuts them (an Enum of the Interval labels' text), counted by pandas_category_counts.
+
+    pandas counts pd.cut(values, bins, include_lowest=True): each bin once, in the bins' order,
+    an empty one as 0; values outside every bin and missing ones are not counted (dropna=False
+    too: pandas drops that missing label); with dropna=True (the default) and no value in any
+    bin the result has no rows; normalize divides by the number of values, missing ones and
+    those outside the bins too; sort orders the counts stably (ties in the bins' order)."""
+    # pandas labels the counts by the bins in an unnamed index (not named after the Series),
+    # which reset_index() names "index"
+    name = "index"
+    edges = _literal_edges(call, column)
+    labels = interval_labels(edges)
+    values = column.code
+    if column.dtype == "float":
+        values = values.method("fill_nan", None)  # NaN falls in no bin
+    code: Code | None = None
+    for i, (low, high, label) in enumerate(zip(edges, edges[1:], labels)):
+        # right-closed bins; include_lowest closes the first on its exact edge (pandas counts
+        # a value equal to edges[0], not one between the label's moved edge and edges[0])
+        test = values.method("is_between", low, high, closed="both" if i == 0 else "right")
+        step = emit.pl("lit", label)
+        code = emit.pl("when", test).method("then", step) if code is None \
+            else code.method("when", test).method("then", step)
+    assert code is not None
+    binned = code.method("cast", emit.pl("Enum", labels)).method("alias", name)
+    source = column.frame.code.method("select", binned)
+    counts = emit.call(CATEGORY_COUNTS_FUNCTION, source.method("drop_nulls"), name)
+    dropna = call.const("dropna", None, True, kinds=(bool,))
+    if dropna:
+        # pandas gives no rows where no value falls in any bin
+        counts = counts.method("filter", emit.binop(emit.col("count").method("sum"), ">", 0))
+    result_name = "count"
+    if call.const("normalize", None, False, kinds=(bool,)):
+        # divided by the number of values, those in no bin and missing ones too
+        total = column.frame.code.method("select", emit.pl("len").method("alias", "_porter_rows"))
+        counts = counts.method("join", total, how="cross").method(
+            "select", emit.col(name), emit.call(
+                DIVIDE_FUNCTION, emit.col("count"), emit.col("_porter_rows")).method(
+                "alias", "proportion"))
+        result_name = "proportion"
+    if call.const("sort", None, True, kinds=(bool,)):
+        descending = not call.const("ascending", None, False, kinds=(bool,))
+        kwargs: dict[str, object] = {"descending": True} if descending else {}
+        counts = counts.method("sort", result_name, **kwargs, maintain_order=True)
+    kind = "float" if result_name == "proportion" else "int"
+    result = Frame(counts, columns=(name, result_name), index=(name,), labels_intact=False,
+                   index_unnamed=True, dtypes=((name, "enum"), (result_name, kind)))
+    return Column(emit.col(result_name), frame=result, name=result_name, dtype=kind,
+                  refs=frozenset({result_name}))
+
+
 def _reject_bins(call: PandasCall) -> None:
     """value_counts(bins=...): a TODO saying why (bins=None is no bins)."""
-    bins = call.kwargs.get("bins")
-    if bins is not None and not (isinstance(bins, Opaque) and bins.is_const and bins.const is None):
+    if _has_bins(call):
         raise Unsupported(
             "bins: pandas counts pd.cut(values, bins, include_lowest=True) and labels the "
             "counts with Interval values, every bin listed (empty ones as 0): with a number of "
@@ -1605,8 +1693,9 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
     """
     column = call.receiver
     assert isinstance(column, Column)
-    _reject_bins(call)
     ctx.reject_unknown(call, "normalize", "sort", "ascending", "dropna", "bins")
+    if _has_bins(call):
+        return _binned_counts(call, column, ctx)
     name = column.name
     if name is None:
         raise Unsupported("counting an unnamed Series")
