@@ -605,14 +605,18 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 ALIGNED = "_porter_aligned"
+EMPTY_FRAME_ROWS = "_porter_rows"
 
 
 def _labelled_alike(frame: Frame, other: Frame) -> bool:
-    """Both tables labelled by the same one key column, each label once (a groupby's results
-    on one key, in their own order): a Series of one set into the other is aligned on it."""
+    """Both tables labelled by the same one key column, the Series' each label once (a
+    groupby's results on one key, in their own order): a Series of one set into the other is
+    aligned on it. The frame's labels may repeat (set_index of a column, a table a function
+    returned labelled by its key): pandas reindexes the Series to them, each row getting the
+    value of its label, which a left join on the key gives too."""
     from porter.rules.selection import unique_key
-    return len(frame.index) == 1 and frame.index == other.index \
-        and unique_key(frame) and unique_key(other)
+    return len(frame.index) == 1 and frame.index == other.index and unique_key(other) \
+        and (unique_key(frame) or not frame.index_unnamed)
 
 
 def _aligned_on_labels(frame: Frame, name: str, value: Column, ctx: RuleContext) -> Frame:
@@ -621,7 +625,8 @@ def _aligned_on_labels(frame: Frame, name: str, value: Column, ctx: RuleContext)
     Series lacks it, a label only the Series has is dropped): a left join on the key column,
     missing keys matching each other as pandas' NaN labels do. The column keeps its place when
     it exists. An integer Series is float64 in pandas where a label went missing: made Float64
-    there once the join has run; a True/False one becomes object with NaN in pandas: a TODO."""
+    there once the join has run; a True/False one becomes object with NaN in pandas: a TODO.
+    A frame without rows is given the Series' labels as its rows, as pandas gives them."""
     key = frame.index[0]
     kinds = {frame.dtype(key), value.frame.dtype(key)}
     if len(kinds) > 1 and None not in kinds:
@@ -633,8 +638,14 @@ def _aligned_on_labels(frame: Frame, name: str, value: Column, ctx: RuleContext)
         ctx.lower("the Series' type is not known: True/False values become an object column in "
                   "pandas where a label is missing (Boolean with null here)", 0.9)
     other = value.frame.code.method("select", emit.col(key), value.code.method("alias", ALIGNED))
-    joined = replace(frame, code=frame.code.method(
-        "join", other, on=key, how="left", nulls_equal=True, maintain_order="left"))
+    # a frame without rows takes the Series' labels as its rows in pandas (the other columns
+    # missing there): the Series' rows, kept only when the frame has none
+    rows = frame.code.method("select", emit.pl("len").method("alias", EMPTY_FRAME_ROWS))
+    taken = other.method("join", rows, how="cross", maintain_order="left").method(
+        "filter", emit.binop(emit.col(EMPTY_FRAME_ROWS), "==", 0)).method("drop", EMPTY_FRAME_ROWS)
+    joined = replace(frame, code=emit.pl("concat", [frame.code.method(
+        "join", other, on=key, how="left", nulls_equal=True, maintain_order="left"), taken],
+        how="diagonal_relaxed"))
     result = with_columns(joined, [(name, emit.col(ALIGNED), value.dtype)])
     code = result.code.method("drop", ALIGNED)
     if value.dtype in ("int", None):

@@ -401,7 +401,10 @@ class _Walker:
             name = param.name.value
             if function is not None and name in function.frame_params:
                 columns, dtypes = dict(function.param_schemas).get(name, (None, ()))
-                local[name] = Frame(emit.atom(name), labels_intact=False, columns=columns, dtypes=dtypes)
+                # labelled as every call's frame is (its index columns), where they agree
+                index, unnamed = dict(function.param_indexes).get(name, ((), False))
+                local[name] = Frame(emit.atom(name), labels_intact=False, columns=columns,
+                                    dtypes=dtypes, index=index, index_unnamed=unnamed)
                 self.param_frames[local[name].rows] = name  # type: ignore[union-attr]
             elif function is not None and name in function.column_params:
                 # a Polars expression: the caller's column (the rows are the caller's, unknown)
