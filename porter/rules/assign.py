@@ -605,7 +605,26 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
 
 
 ALIGNED = "_porter_aligned"
-EMPTY_FRAME_ROWS = "_porter_rows"
+
+# A Series labelled by a key of distinct values set into a frame labelled by that key, as
+# pandas aligns it (each row the value of its label); a frame without rows takes the Series'
+# labels as its rows in pandas, its other columns missing there
+ALIGNED_FUNCTION = "pandas_aligned"
+ALIGNED_DEFINITION = '''\
+def pandas_aligned(frame, values, key):
+    """The frame with the columns of `values` (its labels `key` and the values) joined on
+    `key` as pandas aligns a Series set into a frame: each row gets the value of its label
+    (missing where the Series lacks it, a missing label matching a missing one); a frame
+    without rows gets the Series' labels as its rows, as pandas gives it them."""
+    joined = frame.join(values, on=key, how="left", nulls_equal=True, maintain_order="left")
+    rows = frame.select(pl.len().alias("_porter_rows"))
+    taken = (
+        values.join(rows, how="cross", maintain_order="left")
+        .filter(pl.col("_porter_rows") == 0)
+        .drop("_porter_rows")
+    )
+    return pl.concat([joined, taken], how="diagonal_relaxed")
+'''
 
 
 def _labelled_alike(frame: Frame, other: Frame) -> bool:
@@ -638,14 +657,8 @@ def _aligned_on_labels(frame: Frame, name: str, value: Column, ctx: RuleContext)
         ctx.lower("the Series' type is not known: True/False values become an object column in "
                   "pandas where a label is missing (Boolean with null here)", 0.9)
     other = value.frame.code.method("select", emit.col(key), value.code.method("alias", ALIGNED))
-    # a frame without rows takes the Series' labels as its rows in pandas (the other columns
-    # missing there): the Series' rows, kept only when the frame has none
-    rows = frame.code.method("select", emit.pl("len").method("alias", EMPTY_FRAME_ROWS))
-    taken = other.method("join", rows, how="cross", maintain_order="left").method(
-        "filter", emit.binop(emit.col(EMPTY_FRAME_ROWS), "==", 0)).method("drop", EMPTY_FRAME_ROWS)
-    joined = replace(frame, code=emit.pl("concat", [frame.code.method(
-        "join", other, on=key, how="left", nulls_equal=True, maintain_order="left"), taken],
-        how="diagonal_relaxed"))
+    # a left join; a frame without rows takes the Series' labels as its rows (pandas_aligned)
+    joined = replace(frame, code=emit.call(ALIGNED_FUNCTION, frame.code, other, key))
     result = with_columns(joined, [(name, emit.col(ALIGNED), value.dtype)])
     code = result.code.method("drop", ALIGNED)
     if value.dtype in ("int", None):
