@@ -2314,14 +2314,17 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     margins_name = call.const("margins_name", None, "All", kinds=(str,))
     if not call.const("dropna", None, True) or not call.const("sort", None, True):
         raise Unsupported("dropna=False or sort=False")
+    how = how_name(call.arg("aggfunc", 3)) if call.has("aggfunc", 3) else "mean"
+    plain = ("str", "int", "float", "bool", "date", "datetime")
     if call.const("observed", None, True) is not True and not all(
-            frame.dtype(k) in ("str", "int", "float", "bool", "date", "datetime")
-            for k in (*keys, columns)):
+            frame.dtype(k) in plain for k in (*keys, columns)):
+        if how == "count" and frame.dtype(columns) == "enum" and not margins \
+                and all(frame.dtype(k) in plain for k in keys):
+            return _pivot_count_every_category(frame, keys, columns, values, ctx)
         # pandas then keeps every category of a Categorical key (pd.cut's bins), used or not:
         # rows and columns of 0 (count) or missing cells, which the pivot of the groups lacks
         raise Unsupported("observed=False keeps the unused categories of a category key "
                           "(rows and columns no row has)")
-    how = how_name(call.arg("aggfunc", 3)) if call.has("aggfunc", 3) else "mean"
     if how not in ("sum", "mean", "median", "numpy_median", "min", "max", "count"):
         raise Unsupported(f"aggfunc {how!r}")
     fill = call.const("fill_value", 4, None)
@@ -2355,6 +2358,41 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
         if frame.dtype(columns) == "int" else None
     return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False,
                  int_labels_except=int_labels, columns_name=columns)
+
+
+def _pivot_count_every_category(frame: Frame, keys: list[str], columns: str, values: str,
+                                ctx: RuleContext) -> Value:
+    """pivot_table(index=keys, columns=c, values=v, aggfunc="count", observed=False) where c
+    holds the categories of pd.cut / pd.qcut labels (an Enum): pandas counts v for every
+    combination of the index keys met in a row (none of them missing; the row's c or v may
+    be) with every category of c, used or not: a column per category in the categories'
+    order, 0 where no value is counted, int64 (fill_value never applies: no cell is missing).
+    The combinations crossed with the categories, the counts joined on them, then pivoted."""
+    absent = [c for c in (*keys, columns, values)
+              if frame.columns is not None and c not in frame.columns]
+    if absent:
+        raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
+    if len(set(keys)) != len(keys) or columns in keys or values in (*keys, columns):
+        raise Unsupported("a key named twice, or the values column among the keys")
+    ctx.lower("a frame without rows gives pandas an empty table without columns; here the "
+              "index keys' columns", 0.95)
+    rows = frame.code.method("drop_nulls", keys).method("select", *keys).method(
+        "unique", maintain_order=True)
+    # the Enum's categories, in their order, from the frame's schema (no data read)
+    kind = frame.code.method("collect_schema").index(columns)
+    every = emit.pl("LazyFrame", {columns: kind.attr("categories")}).method("cast", {columns: kind})
+    counts = frame.code.method("drop_nulls", [*keys, columns]).method(
+        "group_by", [*keys, columns]).method(
+        "agg", emit.col(values).method("count").method("cast", emit.atom("pl.Int64")))
+    grid = rows.method("join", every, how="cross", maintain_order="left_right").method(
+        "join", counts, on=[*keys, columns], how="left", nulls_equal=True,
+        maintain_order="left").method("with_columns", emit.col(values).method("fill_null", 0))
+    # every category of every combination is there: the pivot meets them in the categories'
+    # order, and names the new columns by their text
+    code = pivot_sorted(grid, columns, keys, values, None, False)
+    ctx.lower("the new columns are named by their values as text (pandas keeps the values)", 0.95)
+    return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False,
+                 columns_name=columns)
 
 
 def _pivot_margins(table: Code, frame: Frame, keys: list[str], columns: str, values: str,
