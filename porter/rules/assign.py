@@ -607,13 +607,36 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
 
 ALIGNED = "_porter_aligned"
 
+# A Series labelled by a key of distinct values set into a frame labelled by that key, as
+# pandas aligns it (each row the value of its label); a frame without rows takes the Series'
+# labels as its rows in pandas, its other columns missing there
+ALIGNED_FUNCTION = "pandas_aligned"
+ALIGNED_DEFINITION = '''\
+def pandas_aligned(frame, values, key):
+    """The frame with the columns of `values` (its labels `key` and the values) joined on
+    `key` as pandas aligns a Series set into a frame: each row gets the value of its label
+    (missing where the Series lacks it, a missing label matching a missing one); a frame
+    without rows gets the Series' labels as its rows, as pandas gives it them."""
+    joined = frame.join(values, on=key, how="left", nulls_equal=True, maintain_order="left")
+    rows = frame.select(pl.len().alias("_porter_rows"))
+    taken = (
+        values.join(rows, how="cross", maintain_order="left")
+        .filter(pl.col("_porter_rows") == 0)
+        .drop("_porter_rows")
+    )
+    return pl.concat([joined, taken], how="diagonal_relaxed")
+'''
+
 
 def _labelled_alike(frame: Frame, other: Frame) -> bool:
-    """Both tables labelled by the same one key column, each label once (a groupby's results
-    on one key, in their own order): a Series of one set into the other is aligned on it."""
+    """Both tables labelled by the same one key column, the Series' each label once (a
+    groupby's results on one key, in their own order): a Series of one set into the other is
+    aligned on it. The frame's labels may repeat (set_index of a column, a table a function
+    returned labelled by its key): pandas reindexes the Series to them, each row getting the
+    value of its label, which a left join on the key gives too."""
     from porter.rules.selection import unique_key
-    return len(frame.index) == 1 and frame.index == other.index \
-        and unique_key(frame) and unique_key(other)
+    return len(frame.index) == 1 and frame.index == other.index and unique_key(other) \
+        and (unique_key(frame) or not frame.index_unnamed)
 
 
 def _aligned_on_labels(frame: Frame, name: str, value: Column, ctx: RuleContext) -> Frame:
@@ -622,7 +645,8 @@ def _aligned_on_labels(frame: Frame, name: str, value: Column, ctx: RuleContext)
     Series lacks it, a label only the Series has is dropped): a left join on the key column,
     missing keys matching each other as pandas' NaN labels do. The column keeps its place when
     it exists. An integer Series is float64 in pandas where a label went missing: made Float64
-    there once the join has run; a True/False one becomes object with NaN in pandas: a TODO."""
+    there once the join has run; a True/False one becomes object with NaN in pandas: a TODO.
+    A frame without rows is given the Series' labels as its rows, as pandas gives them."""
     key = frame.index[0]
     kinds = {frame.dtype(key), value.frame.dtype(key)}
     if len(kinds) > 1 and None not in kinds:
@@ -634,8 +658,8 @@ def _aligned_on_labels(frame: Frame, name: str, value: Column, ctx: RuleContext)
         ctx.lower("the Series' type is not known: True/False values become an object column in "
                   "pandas where a label is missing (Boolean with null here)", 0.9)
     other = value.frame.code.method("select", emit.col(key), value.code.method("alias", ALIGNED))
-    joined = replace(frame, code=frame.code.method(
-        "join", other, on=key, how="left", nulls_equal=True, maintain_order="left"))
+    # a left join; a frame without rows takes the Series' labels as its rows (pandas_aligned)
+    joined = replace(frame, code=emit.call(ALIGNED_FUNCTION, frame.code, other, key))
     result = with_columns(joined, [(name, emit.col(ALIGNED), value.dtype)])
     code = result.code.method("drop", ALIGNED)
     if value.dtype in ("int", None):

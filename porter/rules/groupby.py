@@ -1648,10 +1648,98 @@ def _nan_when_empty(column: Column, how: str, expr: Code, ctx: RuleContext) -> C
     return expr
 
 
+def _has_bins(call: PandasCall) -> bool:
+    bins = call.kwargs.get("bins")
+    return bins is not None and not (isinstance(bins, Opaque) and bins.is_const and bins.const is None)
+
+
+def interval_labels(edges: list[int | float]) -> list[str]:
+    """The text of the Interval labels pd.cut(values, edges, include_lowest=True) gives its
+    bins, as pandas writes them ("(0.999, 1.5]": the first edge moved down by 10**-3, pandas'
+    display precision, and the edges rounded to it): computed by pandas itself from the edges,
+    which are literal numbers."""
+    import pandas as pd
+
+    categories = pd.cut(pd.Series([], dtype="float64"), edges, include_lowest=True).cat.categories
+    return [str(c) for c in categories]
+
+
+def _literal_edges(call: PandasCall, column: Column) -> list[int | float]:
+    """value_counts(bins=[edges]): the edges, a literal list of increasing numbers, of a
+    column of numbers; anything else a TODO saying why."""
+    bins = call.const("bins", None, None, kinds=(list, tuple, int))
+    if isinstance(bins, int) and not isinstance(bins, bool):
+        raise Unsupported(
+            "bins as a number of bins: pandas counts pd.cut(values, n, include_lowest=True), "
+            "whose edges come from the data (min and max, widened by 0.1%) and whose Interval "
+            "labels round them for display ((0.0891, 3.4]); porter ports literal edges only")
+    if not isinstance(bins, (list, tuple)) or len(bins) < 2 or not all(
+            isinstance(b, (int, float)) and not isinstance(b, bool) and b == b
+            and abs(b) != float("inf") for b in bins):
+        raise Unsupported("bins other than a literal list of finite numbers")
+    if any(a >= b for a, b in zip(bins, bins[1:])):
+        raise Unsupported("bins that do not increase (pandas raises)")
+    if column.dtype not in ("int", "float"):
+        raise Unsupported("bins of a column not known to hold numbers (pandas raises on text)")
+    return list(bins)
+
+
+def _binned_counts(call: PandasCall, column: Column, ctx: RuleContext) -> Value:
+    """s.value_counts(bins=[edges]) -> the rows cut into the bins as pd.cut(include_lowest=True)
+    cuts them (an Enum of the Interval labels' text), counted by pandas_category_counts.
+
+    pandas counts pd.cut(values, bins, include_lowest=True): each bin once, in the bins' order,
+    an empty one as 0; values outside every bin and missing ones are not counted (dropna=False
+    too: pandas drops that missing label); with dropna=True (the default) and no value in any
+    bin the result has no rows; normalize divides by the number of values, missing ones and
+    those outside the bins too; sort orders the counts stably (ties in the bins' order)."""
+    # pandas labels the counts by the bins in an unnamed index (not named after the Series),
+    # which reset_index() names "index"
+    name = "index"
+    edges = _literal_edges(call, column)
+    labels = interval_labels(edges)
+    values = column.code
+    if column.dtype == "float":
+        values = values.method("fill_nan", None)  # NaN falls in no bin
+    code: Code | None = None
+    for i, (low, high, label) in enumerate(zip(edges, edges[1:], labels)):
+        # right-closed bins; include_lowest closes the first on its exact edge (pandas counts
+        # a value equal to edges[0], not one between the label's moved edge and edges[0])
+        test = values.method("is_between", low, high, closed="both" if i == 0 else "right")
+        step = emit.pl("lit", label)
+        code = emit.pl("when", test).method("then", step) if code is None \
+            else code.method("when", test).method("then", step)
+    assert code is not None
+    binned = code.method("cast", emit.pl("Enum", labels)).method("alias", name)
+    source = column.frame.code.method("select", binned)
+    counts = emit.call(CATEGORY_COUNTS_FUNCTION, source.method("drop_nulls"), name)
+    dropna = call.const("dropna", None, True, kinds=(bool,))
+    if dropna:
+        # pandas gives no rows where no value falls in any bin
+        counts = counts.method("filter", emit.binop(emit.col("count").method("sum"), ">", 0))
+    result_name = "count"
+    if call.const("normalize", None, False, kinds=(bool,)):
+        # divided by the number of values, those in no bin and missing ones too
+        total = column.frame.code.method("select", emit.pl("len").method("alias", "_porter_rows"))
+        counts = counts.method("join", total, how="cross").method(
+            "select", emit.col(name), emit.call(
+                DIVIDE_FUNCTION, emit.col("count"), emit.col("_porter_rows")).method(
+                "alias", "proportion"))
+        result_name = "proportion"
+    if call.const("sort", None, True, kinds=(bool,)):
+        descending = not call.const("ascending", None, False, kinds=(bool,))
+        kwargs: dict[str, object] = {"descending": True} if descending else {}
+        counts = counts.method("sort", result_name, **kwargs, maintain_order=True)
+    kind = "float" if result_name == "proportion" else "int"
+    result = Frame(counts, columns=(name, result_name), index=(name,), labels_intact=False,
+                   index_unnamed=True, dtypes=((name, "enum"), (result_name, kind)))
+    return Column(emit.col(result_name), frame=result, name=result_name, dtype=kind,
+                  refs=frozenset({result_name}))
+
+
 def _reject_bins(call: PandasCall) -> None:
     """value_counts(bins=...): a TODO saying why (bins=None is no bins)."""
-    bins = call.kwargs.get("bins")
-    if bins is not None and not (isinstance(bins, Opaque) and bins.is_const and bins.const is None):
+    if _has_bins(call):
         raise Unsupported(
             "bins: pandas counts pd.cut(values, bins, include_lowest=True) and labels the "
             "counts with Interval values, every bin listed (empty ones as 0): with a number of "
@@ -1676,8 +1764,9 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
     """
     column = call.receiver
     assert isinstance(column, Column)
-    _reject_bins(call)
     ctx.reject_unknown(call, "normalize", "sort", "ascending", "dropna", "bins")
+    if _has_bins(call):
+        return _binned_counts(call, column, ctx)
     name = column.name
     if name is None:
         raise Unsupported("counting an unnamed Series")
@@ -2099,6 +2188,56 @@ def series_describe(call: PandasCall, ctx: RuleContext) -> Value:
                   refs=frozenset({name}))
 
 
+@rule("groupby.describe")
+def group_describe(call: PandasCall, ctx: RuleContext) -> Value:
+    """g["c"].describe() of numbers -> count, mean, std, min, 25%, 50%, 75%, max per group in
+    one LazyGroupBy.agg, a frame labelled by the keys.
+
+    Handles: pandas describes each group's Series as Series.describe does, so each statistic
+    is computed as series.describe computes it: count as a float, mean and std added as numpy
+    adds (pandas_reduce; two passes, not the Welford's method of groupby.std), percentiles
+    interpolated as numpy (pandas_quantile); missing values (NaN too) skipped, a group without
+    values counted 0 with the others missing; every statistic a float; keys sorted, sort=,
+    dropna=, as_index= as the other aggregations.
+    Caveats: a frame's groupby (pandas' columns are a MultiIndex of column and statistic),
+    text, True/False and dates (other statistics in pandas), a column of unknown type, and
+    percentiles= / include= / exclude= are TODOs. A frame without rows keeps its key columns
+    here, where pandas gives an unnamed empty index (0.95).
+    """
+    grouped = grouped_of(call)
+    ctx.reject_unknown(call)
+    if not grouped.single or not grouped.selection or len(grouped.selection) != 1:
+        raise Unsupported("describe of a frame's groups: pandas labels the columns by a "
+                          "MultiIndex of the column and the statistic")
+    name = grouped.selection[0]
+    dtype = grouped.frame.dtype(name)
+    if dtype not in ("int", "float"):
+        raise Unsupported("describe of a column not known to hold numbers (pandas describes "
+                          "text, True/False and dates with other statistics)")
+    ctx.lower("a frame without rows: pandas describes it with an unnamed empty index (no key "
+              "column, as_index=False too), where porter keeps the key columns", 0.95)
+    values = emit.col(name)
+    if dtype == "float":
+        values = values.method("fill_nan", None)  # NaN is a missing value to pandas
+    as_float = emit.atom("pl.Float64")
+    stats: list[tuple[str, Code]] = [
+        ("count", values.method("count").method("cast", as_float)),
+        # each group is a Series described by Series.describe: numpy's pairwise sums and the
+        # two-pass std of nanops (pandas_reduce), not groupby.std's running sums
+        ("mean", pandas_reduce(values.method("cast", as_float), "mean")),
+        ("std", pandas_reduce(values.method("cast", as_float), "std")),
+        ("min", values.method("min").method("cast", as_float)),
+        # numpy's interpolation to the last bit, and the sign of a zero (pandas_quantile)
+        ("25%", emit.call(QUANTILE_FUNCTION, values, 0.25)),
+        ("50%", emit.call(QUANTILE_FUNCTION, values, 0.5)),
+        ("75%", emit.call(QUANTILE_FUNCTION, values, 0.75)),
+        ("max", values.method("max").method("cast", as_float)),
+    ]
+    names = [label for label, _ in stats]
+    exprs = [expr.method("alias", label) for label, expr in stats]
+    return aggregate(grouped, exprs, names, ctx, dtypes=["float"] * len(names))
+
+
 @rule("series.quantile")
 def series_quantile(call: PandasCall, ctx: RuleContext) -> Value:
     """Series.quantile(q) -> select(pandas_quantile(expr, q)).collect().item().
@@ -2264,14 +2403,17 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     margins_name = call.const("margins_name", None, "All", kinds=(str,))
     if not call.const("dropna", None, True) or not call.const("sort", None, True):
         raise Unsupported("dropna=False or sort=False")
+    how = how_name(call.arg("aggfunc", 3)) if call.has("aggfunc", 3) else "mean"
+    plain = ("str", "int", "float", "bool", "date", "datetime")
     if call.const("observed", None, True) is not True and not all(
-            frame.dtype(k) in ("str", "int", "float", "bool", "date", "datetime")
-            for k in (*keys, columns)):
+            frame.dtype(k) in plain for k in (*keys, columns)):
+        if how == "count" and frame.dtype(columns) == "enum" and not margins \
+                and all(frame.dtype(k) in plain for k in keys):
+            return _pivot_count_every_category(frame, keys, columns, values, ctx)
         # pandas then keeps every category of a Categorical key (pd.cut's bins), used or not:
         # rows and columns of 0 (count) or missing cells, which the pivot of the groups lacks
         raise Unsupported("observed=False keeps the unused categories of a category key "
                           "(rows and columns no row has)")
-    how = how_name(call.arg("aggfunc", 3)) if call.has("aggfunc", 3) else "mean"
     if how not in ("sum", "mean", "median", "numpy_median", "min", "max", "count"):
         raise Unsupported(f"aggfunc {how!r}")
     fill = call.const("fill_value", 4, None)
@@ -2363,10 +2505,45 @@ def _strftime_of_columns(stmt: ast.stmt | None, name: str) -> str | None:
     return call.args[0].value
 
 
+def _pivot_count_every_category(frame: Frame, keys: list[str], columns: str, values: str,
+                                ctx: RuleContext) -> Value:
+    """pivot_table(index=keys, columns=c, values=v, aggfunc="count", observed=False) where c
+    holds the categories of pd.cut / pd.qcut labels (an Enum): pandas counts v for every
+    combination of the index keys met in a row (none of them missing; the row's c or v may
+    be) with every category of c, used or not: a column per category in the categories'
+    order, 0 where no value is counted, int64 (fill_value never applies: no cell is missing).
+    The combinations crossed with the categories, the counts joined on them, then pivoted."""
+    absent = [c for c in (*keys, columns, values)
+              if frame.columns is not None and c not in frame.columns]
+    if absent:
+        raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
+    if len(set(keys)) != len(keys) or columns in keys or values in (*keys, columns):
+        raise Unsupported("a key named twice, or the values column among the keys")
+    ctx.lower("a frame without rows gives pandas an empty table without columns; here the "
+              "index keys' columns", 0.95)
+    rows = frame.code.method("drop_nulls", keys).method("select", *keys).method(
+        "unique", maintain_order=True)
+    # the Enum's categories, in their order, from the frame's schema (no data read)
+    kind = frame.code.method("collect_schema").index(columns)
+    every = emit.pl("LazyFrame", {columns: kind.attr("categories")}).method("cast", {columns: kind})
+    counts = frame.code.method("drop_nulls", [*keys, columns]).method(
+        "group_by", [*keys, columns]).method(
+        "agg", emit.col(values).method("count").method("cast", emit.atom("pl.Int64")))
+    grid = rows.method("join", every, how="cross", maintain_order="left_right").method(
+        "join", counts, on=[*keys, columns], how="left", nulls_equal=True,
+        maintain_order="left").method("with_columns", emit.col(values).method("fill_null", 0))
+    # every category of every combination is there: the pivot meets them in the categories'
+    # order, and names the new columns by their text
+    code = pivot_sorted(grid, columns, keys, values, None, False)
+    ctx.lower("the new columns are named by their values as text (pandas keeps the values)", 0.95)
+    return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False,
+                 columns_name=columns)
+
+
 def pivot_margins(table: Code, frame: Frame, keys: list[str], columns: str, values: str,
                    how: str, dtype: str | None, name: str, fill: Any, float32: bool) -> Code:
-    """margins=True: the pivoted table given to pandaspivot_margins, which adds the total
-    column and row `name` as pandas computes them (each over the rows where no key and not
+    """margins=True: the pivoted table given to pandas_pivot_margins, which adds the total
+    column and row `name` as pandas computes them (each over the rows where neither key nor
     the value is missing, a row of totals last and a column last, a missing total making an
     integer column float). Sums and means of floats are added as pandas adds them: each row's
     and column's as its groupby does (pandas_group_sums), the grand total as its Series.sum

@@ -401,7 +401,10 @@ class _Walker:
             name = param.name.value
             if function is not None and name in function.frame_params:
                 columns, dtypes = dict(function.param_schemas).get(name, (None, ()))
-                local[name] = Frame(emit.atom(name), labels_intact=False, columns=columns, dtypes=dtypes)
+                # labelled as every call's frame is (its index columns), where they agree
+                index, unnamed = dict(function.param_indexes).get(name, ((), False))
+                local[name] = Frame(emit.atom(name), labels_intact=False, columns=columns,
+                                    dtypes=dtypes, index=index, index_unnamed=unnamed)
                 self.param_frames[local[name].rows] = name  # type: ignore[union-attr]
             elif function is not None and name in function.column_params:
                 # a Polars expression: the caller's column (the rows are the caller's, unknown)
@@ -1809,23 +1812,31 @@ class _Walker:
             return None
         names = _names_read(self.services.code_for(expr))
         frames = [n for n in names if isinstance(env.get(n), Frame)]
-        if len(frames) != 1:
+        if not frames:
             return None
-        frame = env[frames[0]]
-        assert isinstance(frame, Frame)
-        if not frame.labels_intact or frame.index or frame.columns is None \
-                or "index" in frame.columns \
-                or frame.nullable_ints is None and self.services.nullable_ints_possible:
-            # (which columns are pandas' nullable ints is unknown only where the script can
-            # make them at all)
-            return None
-        labelled = with_row_labels(frame)
-        result = Evaluator({**env, frames[0]: labelled}, self.services).eval(expr)
-        if any(site.status == "todo" for site in result.sites):
-            return None
-        if keep_index and not (isinstance(result, Frame) and result.index == ("index",)):
-            return None
-        return result
+        # a statement reading several frames (left.merge(right, left_on=k, right_index=True)
+        # labels its rows with the left's): each frame in turn, kept where the result holds
+        # that frame's labels as its index
+        keep_index = keep_index or len(frames) > 1
+        for name in frames:
+            frame = env[name]
+            assert isinstance(frame, Frame)
+            if not frame.labels_intact or frame.index or frame.columns is None \
+                    or "index" in frame.columns \
+                    or frame.nullable_ints is None and self.services.nullable_ints_possible:
+                # (which columns are pandas' nullable ints is unknown only where the script
+                # can make them at all)
+                if len(frames) == 1:
+                    return None
+                continue
+            labelled = with_row_labels(frame)
+            result = Evaluator({**env, name: labelled}, self.services).eval(expr)
+            if any(site.status == "todo" for site in result.sites):
+                continue
+            if keep_index and not (isinstance(result, Frame) and result.index == ("index",)):
+                continue
+            return result
+        return None
 
     def made_by_pandas(self, name: str, expr: cst.BaseExpression, env: dict[str, Value],
                        value: Value) -> tuple[str, list[SiteDraft]] | None:

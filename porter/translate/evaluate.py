@@ -52,6 +52,10 @@ class LocalFunction:
     returns: Value | None  # a template of the return value (Frame), when known
     # what every call passes for a frame parameter, when the calls agree: (columns, dtypes)
     param_schemas: tuple[tuple[str, tuple[tuple[str, ...] | None, tuple[tuple[str, str], ...]]], ...] = ()
+    # the index every call's frame has for a frame parameter, when they agree and it is one
+    # (set_index, a groupby's keys, index_col=): (param, (index columns, index unnamed)); the
+    # body sees a frame labelled by them, so what it returns keeps them as its labels
+    param_indexes: tuple[tuple[str, tuple[tuple[str, ...], bool]], ...] = ()
     # literal values every call passes (a file name), so rules can look inputs up
     param_consts: tuple[tuple[str, Any], ...] = ()
     # texts the calls pass for a parameter when they differ (two input files of one layout)
@@ -577,7 +581,11 @@ class Evaluator:
                         ok = False
                         return updated
                     return cst.parse_expression(handover.to_pandas(named).wrapped(emit.ATOM))
-                if isinstance(named, (Grouped, Accessor, Indexer, Parts)):
+                if isinstance(named, Indexed) and not named.grouped \
+                        and named.frame.labels_intact and not named.frame.index:
+                    # set_index(k) of a frame in a name: pandas' frame labelled by k
+                    return cst.parse_expression(handover.to_pandas(named).wrapped(emit.ATOM))
+                if isinstance(named, (Grouped, Accessor, Indexer, Parts, Indexed)):
                     ok = False
                 return updated
 

@@ -32,6 +32,7 @@ from porter.rules.groupby import (
     TEXT_VALUES_DEFINITION, TEXT_VALUES_FUNCTION,
 )
 from porter.rules.totals import REDUCE_DEFINITION, REDUCE_FUNCTION
+from porter.rules.assign import ALIGNED_DEFINITION, ALIGNED_FUNCTION
 from porter.rules.io_options import (
     CATEGORY_COUNTS_DEFINITION, CATEGORY_COUNTS_FUNCTION,
     CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION, CSV_DURATIONS_CONSTANT, CSV_LISTS_CONSTANT,
@@ -164,6 +165,7 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (TOTAL_FUNCTION, TOTAL_DEFINITION),
                                  (TOTAL_EXPR_FUNCTION, TOTAL_EXPR_DEFINITION),
                                  (REDUCE_FUNCTION, REDUCE_DEFINITION),
+                                 (ALIGNED_FUNCTION, ALIGNED_DEFINITION),
                                  (TEXT_VALUES_FUNCTION, TEXT_VALUES_DEFINITION),
                                  (TEXT_ARRAY_FUNCTION, TEXT_ARRAY_DEFINITION),
                                  (DTYPES_TEXT_FUNCTION, DTYPES_TEXT_DEFINITION),
