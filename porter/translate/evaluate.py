@@ -644,6 +644,13 @@ class Evaluator:
             kept = tuple(s for s in names.sites if s.key != "frame.columns")
             return BoundMethod(names.code, receiver=replace(names, pytype="names.pairs",
                                                             sites=kept), name=attr)
+        if attr == "name" and isinstance(names.of, Frame) and not names.of.value_levels \
+                and not names.of.column_pairs:
+            # df.columns.name: the key a pivot or unstack laid out as columns (what a hand-over
+            # gives pandas' columns with rename_axis), None for any other frame
+            name = names.of.columns_name
+            return Scalar(emit.lit(name), pytype="str" if name is not None else None,
+                          sites=names.sites)
         line, end_line = self.services.position(node)
         site = SiteDraft("frame.columns.index", "todo", "todo", 0.0,
                          f"pandas' Index.{attr} on the column names: porter's names are a list",
