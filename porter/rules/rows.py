@@ -848,8 +848,9 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
     is stable, so rows of one label keep their order, as maintain_order=True).
     Caveats: labels after a filter or a sort (row numbers porter does not keep), labels that
     may repeat (pandas' quicksort puts ties in no set order), several keys of other types,
-    axis=1, level=,
-    key= and na_position="first" are TODOs. sort_index(by=...) of older pandas is
+    axis=1, key= and na_position="first" are TODOs. level= (a name or position, or a list of
+    them) sorts stably by those keys: ascending a list of as many, each its own way; one
+    True/False, then by the other keys too (sort_remaining=True), all that way. sort_index(by=...) of older pandas is
     sort_values (rules/legacy.py).
     """
     from porter.rules.selection import unique_key
@@ -861,12 +862,19 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
         receiver = values_fixed(receiver)  # a running sum keeps the values of the rows in order
     frame = receiver.frame if isinstance(receiver, Column) else receiver
     assert isinstance(frame, Frame)
-    ctx.reject_unknown(call, "axis", "ascending", "kind", "na_position", "inplace",
-                       "ignore_index")
+    ctx.reject_unknown(call, "axis", "level", "ascending", "kind", "na_position", "inplace",
+                       "ignore_index", "sort_remaining")
     if call.const("axis", None, 0, kinds=(int, str)) not in (0, "index", "rows"):
         raise ctx.todo("sorting the columns by name (axis=1): select them in sorted order")
     if call.const("na_position", None, "last", kinds=(str,)) != "last":
         raise ctx.todo('na_position="first"')
+    if call.has("level"):
+        by_levels = _sort_index_levels(call, frame, ctx)
+        if by_levels is not None:
+            sorted_frame = derive(frame, by_levels, same_rows=False, rows=fresh_token())
+            if isinstance(receiver, Column):
+                return replace(receiver, frame=sorted_frame, sites=())
+            return sorted_frame
     ascending = call.const("ascending", None, True, kinds=(bool,))
     if not frame.index and frame.labels_intact:
         # labels 0..n-1 in order: sorted already (reversed when descending)
@@ -916,6 +924,55 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(receiver, Column):
         return replace(receiver, frame=sorted_frame, sites=())
     return sorted_frame
+
+
+def _sort_index_levels(call: PandasCall, frame: Frame, ctx: RuleContext) -> Code | None:
+    """sort_index(level=[...], ascending=[...]) of labels of several keys (a MultiIndex): a
+    stable sort by the keys named, each its own way (pandas leaves the other keys in their
+    order then); with ascending one True/False, by the keys named and then the others
+    (sort_remaining=True), all that way. A missing key last in its level either way. None
+    where the level names the only key of a table labelled by one (sorted as without
+    level=)."""
+    from porter.rules.selection import index_level
+    levels = call.const_values("level", None, kinds=(str, int))
+    assert levels is not None
+    keys = [index_level(frame, Opaque(emit.lit(v), const=v)) for v in levels]
+    if any(k is None for k in keys) or len(set(keys)) != len(keys):
+        raise ctx.todo("a level that is not one of the labels' keys (or one named twice)")
+    if len(frame.index) == 1:
+        if not isinstance(call.const("ascending", None, True), bool):
+            raise ctx.todo("ascending given as a list for one level")
+        return None
+    if frame.index_unnamed or not all(
+            frame.dtype(k) in ("str", "int", "bool", "date", "datetime") for k in frame.index):
+        raise ctx.todo("labels of several keys of types porter does not sort as pandas does")
+    ascending = call.const("ascending", None, True, kinds=(bool, list, tuple))
+    if call.const("ignore_index", None, False, kinds=(bool,)):
+        raise ctx.todo("ignore_index=True: drop the key columns after the sort")
+    if not isinstance(ascending, bool) and frame.levels_with_missing:
+        raise ctx.todo("a missing key kept as a level value (groupby(dropna=False))")
+    if isinstance(ascending, bool) and not ascending and frame.levels_with_missing:
+        raise ctx.todo("a missing key kept as a level value (groupby(dropna=False)) sorted "
+                       "descending")
+    order = [k for k in keys if k is not None]
+    if isinstance(ascending, bool):
+        # pandas (MultiIndex.sortlevel) sorts by the levels named, then the others
+        # (sort_remaining=True), all one way; a missing key last either way
+        if call.const("sort_remaining", None, True, kinds=(bool,)):
+            order += [k for k in frame.index if k not in order]
+        if not ascending and frame.grouped_rows != frame.rows:
+            ctx.lower("rows of one label (labels that repeat) keep their order; pandas "
+                      "reverses the ascending order, which puts them the other way round", 0.95)
+        ways = [ascending] * len(order)
+    else:
+        # a list: pandas sorts by the levels named only, each its own way (sort_remaining is
+        # not read), stably
+        ways = list(ascending)
+        if len(ways) != len(order) or not all(isinstance(w, bool) for w in ways):
+            raise ctx.todo("ascending as a list of another length than level (pandas raises)")
+    # pandas sorts the levels' codes with a stable lexsort: rows of one label keep their order
+    return frame.code.method("sort", order, descending=[not w for w in ways], nulls_last=True,
+                             maintain_order=True)
 
 
 # -- reindex ------------------------------------------------------------------------------------
