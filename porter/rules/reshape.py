@@ -601,7 +601,10 @@ def get_dummies(call: PandasCall, ctx: RuleContext) -> Value:
         exprs = _dummies(name, prefix, sep, cast, drop_first, dummy_na)
         code = source.method("collect").method(
             "pipe", emit.atom(f"lambda d: d.select({', '.join(e.text for e in exprs)})"))
-        return Frame(code.method("lazy"), columns=None, labels_intact=data.frame.labels_intact)
+        # one row of dummies per row of the Series, in its order: the same rows (pd.concat
+        # axis=1 puts them beside the frame as they are)
+        return Frame(code.method("lazy"), columns=None, labels_intact=data.frame.labels_intact,
+                     rows=data.frame.rows)
 
     if not isinstance(data, Frame):
         raise Unsupported("get_dummies of something other than a frame or column porter tracks")
