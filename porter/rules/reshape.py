@@ -21,7 +21,7 @@ from porter.rules.io_options import COUNT_MARGINS_FUNCTION, DIVIDE_FUNCTION, QUA
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, check_same_rows, column_names, derived_column,
 )
-from porter.translate.values import Column, Frame, Items, Opaque, PandasValue, Value
+from porter.translate.values import Column, Frame, Items, Opaque, PandasValue, Value, fresh_token
 
 _NUMBER_TYPES = ("int", "float")
 
@@ -318,9 +318,13 @@ def unstack(call: PandasCall, ctx: RuleContext) -> Value:
     # pandas_unstacked makes them float when a combination is missing, which depends on the data)
     kind = "float" if column.dtype == "float" or isinstance(fill, float) else (
         "int" if fill is not None else None)
+    # one row per combination of the other keys, sorted: labels of distinct values in a
+    # groupby's order
+    rows = fresh_token()
     return Frame(code, columns=None, index=tuple(rest), dtypes=dtypes,
                  labels_intact=False, int_labels_except=int_labels, columns_name=on,
-                 number_cells=(code.text, kind), columns_kind=frame.dtype(on))
+                 number_cells=(code.text, kind), columns_kind=frame.dtype(on), rows=rows,
+                 grouped_rows=rows)
 
 
 _STACK_ROW = "__stack_row"

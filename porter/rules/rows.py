@@ -1051,6 +1051,79 @@ def series_reindex(call: PandasCall, ctx: RuleContext) -> Value:
     return Column(emit.col(value), frame=result, name=column.name, dtype=dtype)
 
 
+@rule("frame.reindex")
+def frame_reindex(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.reindex(days, fill_value=0) -> pl.LazyFrame({"index": days}).join(df, how="left"),
+    the rows that found none filled.
+
+    On a table labelled by one date key of distinct values (an unstack by day, a groupby's
+    table), days a pd.date_range written in the script: one row per timestamp of the range,
+    in its order; a timestamp the table has no row for gets fill_value in every column.
+
+    Handles: the table's labels the range does not hold are left out; a missing value the
+    table had stays missing (fill_value fills the new rows only); the columns keep their
+    name (an unstack's key); the result is labelled by the range, whose name is None
+    (rename_axis names it, reset_index() calls it "index").
+    Caveats: other targets, columns=, no fill_value, method=, limit=, tolerance=, tables whose
+    labels may repeat (pandas raises) and columns that may hold other than numbers are TODOs."""
+    from porter.rules.construct import DateRange
+    from porter.rules.selection import unique_key
+    from porter.translate.context import number_cells
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "index", "labels", "fill_value", positional=1)
+    target = call.args[0] if call.args else call.kwargs.get("index", call.kwargs.get("labels"))
+    if not (isinstance(target, Opaque) and isinstance(target.const, DateRange)
+            and type(target.const) is DateRange):
+        raise ctx.todo("a target other than a pd.date_range written in the script: a join on a "
+                       "frame of the labels")
+    if not unique_key(frame) or frame.dtype(frame.index[0]) != "datetime":
+        raise ctx.todo("a table not labelled by one date key of distinct values: pandas raises "
+                       "for labels that repeat")
+    fill = call.const("fill_value", None, None, kinds=(int, float, type(None)))
+    if fill is None or isinstance(fill, bool):
+        raise ctx.todo("no fill_value (or one that is not a number): pandas makes the new rows "
+                       "NaN and turns integers float")
+    key = frame.index[0]
+    labels = "index"  # the range's name is None: pandas' unnamed index
+    found = "_porter_found"
+    pivoted, kind = number_cells(frame)
+    if pivoted:
+        cells = None
+    elif frame.columns is not None:
+        cells = [c for c in frame.columns if c != key]
+        kinds = {frame.dtype(c) for c in cells}
+        if not cells or not kinds <= {"int", "float"}:
+            raise ctx.todo("columns that may hold other than numbers: pandas writes the fill "
+                           "value into them as it is")
+        kind = "float" if "float" in kinds else "int"
+    else:
+        raise ctx.todo("a table whose columns porter does not know")
+    if (labels in (frame.columns or ()) and labels != key) or found in (frame.columns or ()):
+        raise ctx.todo(f"a column named {labels!r} beside the labels")
+    right = frame.code
+    if key != labels:
+        right = right.method("rename", {key: labels})
+    right = right.method("with_columns", emit.pl("lit", True).method("alias", found))
+    stamps = target.code if target.code.text.isidentifier() else target.const.code
+    range_frame = emit.pl("LazyFrame", emit.atom("{" + emit.lit(labels).text + ": "
+                                                + stamps.text + "}"))
+    values = emit.pl("exclude", labels, found)
+    filled = emit.when(emit.col(found), values, fill)
+    code = range_frame.method("join", right, on=labels, how="left", maintain_order="left") \
+        .method("with_columns", filled).method("drop", found)
+    if kind == "int" and isinstance(fill, float):
+        kind = "float"
+    rows = fresh_token()
+    columns = None if cells is None else (labels, *cells)
+    dtypes = ((labels, "datetime"),) + tuple((c, "float" if isinstance(fill, float)
+                                               and frame.dtype(c) == "int" else frame.dtype(c))
+                                              for c in cells or () if frame.dtype(c))
+    return replace(frame, code=code, sites=(), columns=columns, index=(labels,),
+                   index_unnamed=True, dtypes=dtypes, labels_intact=False, rows=rows,
+                   grouped_rows=rows, number_cells=(code.text, kind) if pivoted else None)
+
+
 def _reindex_product(call: PandasCall, column: Column, target: Opaque, ctx: RuleContext) -> Value:
     """s.reindex(pd.MultiIndex.from_product(levels, names=...), fill_value=x) of a groupby's
     Series on as many keys: a left join of the Series on the cross join of the levels (the

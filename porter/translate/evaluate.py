@@ -477,6 +477,13 @@ class Evaluator:
         if isinstance(receiver, Accessor):
             names = pandas_names.STR if receiver.kind == "str" else \
                 _WINDOW_METHODS if receiver.kind in handover.WINDOW_KINDS else pandas_names.DT
+            if receiver.kind == "dt" and name == "name" and receiver.index_of is not None:
+                # df.index.name of a table labelled by one date key: the series.name rule
+                # reads the key column's name
+                labels = replace(receiver.column, index_values=True,
+                                 name=None if receiver.index_of.index_unnamed
+                                 else receiver.index_of.index[0])
+                return self.dispatch("series.name", PandasCall(labels, name, node=node), node)
             if receiver.kind == "dt" and name in _DT_PROPERTIES:
                 return self.dispatch(f"series.dt.{name}", PandasCall(receiver, name, node=node), node)
             if receiver.kind == "dt" and name in _PERIOD_METHODS:  # of s.dt.to_period(...)
