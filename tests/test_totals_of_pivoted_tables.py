@@ -51,3 +51,19 @@ CASES = {
 def test_totals_of_a_pivoted_table_match_pandas(source: str) -> None:
     result = differential(HEAD + source + "\n")
     assert not [s for s in result.sites if s.status in ("todo", "handover")], result.converted_text
+
+
+COMPARED = {
+    "days above a number": (
+        'grid = stays.groupby(["night", "hostel"])["guests"].sum().unstack("hostel", fill_value=0)\n'
+        'result = (grid > 2).sum().reset_index()'),
+    "missing cells compared: False, True for !=": (
+        'grid = stays.groupby(["night", "hostel"])["paid"].sum(min_count=1).unstack("hostel")\n'
+        'result = pd.concat([(grid >= 20.2).sum().rename("ge"), (grid != 0.1).sum().rename("ne"), (grid == 40.1).mean().rename("eq")], axis=1).reset_index()'),
+}
+
+
+@pytest.mark.parametrize("source", list(COMPARED.values()), ids=list(COMPARED))
+def test_totals_of_a_compared_pivoted_table_match_pandas(source: str) -> None:
+    result = differential(HEAD + source + "\n")
+    assert not [s for s in result.sites if s.status in ("todo", "handover")], result.converted_text

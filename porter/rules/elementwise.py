@@ -1832,19 +1832,22 @@ def _pivot_totals(call: PandasCall, frame: Frame, ctx: RuleContext) -> Column:
         raise Unsupported("the frame's columns are not known")
     if call.has("numeric_only") or call.has("skipna"):
         raise Unsupported("numeric_only= or skipna= on a pivoted table")
-    if kind not in ("int", "float", None) or kind is None and call.name == "sum":
+    if kind == "bool" and call.name not in ("sum", "mean", "count"):
+        raise Unsupported(f"{call.name} per column of a table of True/False")
+    if kind not in ("int", "float", "bool", None) or kind is None and call.name == "sum":
         # (a sum adds whole numbers exactly and floats as numpy does: the type decides)
         raise Unsupported("a pivoted table whose cells' type porter does not know")
     cells = emit.pl("exclude", *frame.index) if frame.index else emit.pl("all")
-    if kind != "int" and call.name != "count":
+    if kind not in ("int", "bool") and call.name != "count":
         cells = cells.method("fill_nan", None)  # NaN is skipped, as pandas skips it
     as_float = emit.atom("pl.Float64")
     if call.name == "count":
         values, dtype = cells.method("count").method("cast", emit.atom("pl.Int64")), "int"
     elif call.name == "sum":
+        # whole numbers and True/False (counted as 1) exactly, int64; floats as numpy adds them
         values = pandas_reduce(cells) if kind == "float" \
             else cells.method("sum").method("cast", emit.atom("pl.Int64"))
-        dtype = kind
+        dtype = "float" if kind == "float" else "int"
     elif call.name == "mean":
         values = pandas_reduce(cells if kind == "float" else cells.method("cast", as_float), "mean")
         dtype = "float"

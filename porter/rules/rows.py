@@ -353,6 +353,11 @@ def rename_axis(call: PandasCall, ctx: RuleContext) -> Value:
                      columns=tuple(mapping.get(c, c) for c in frame.columns)
                      if frame.columns is not None else None,
                      dtypes=tuple((mapping.get(c, c), t) for c, t in frame.dtypes))
+    from porter.translate.context import number_cells
+    pivoted, cells = number_cells(frame)
+    if pivoted:
+        # a pivoted table with its labels renamed: its cells are still the numbers they were
+        renamed = replace(renamed, number_cells=(code.text, cells))
     if isinstance(receiver, Column):
         return Column(receiver.code, frame=renamed, name=receiver.name, dtype=receiver.dtype,
                       refs=receiver.refs)

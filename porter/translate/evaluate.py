@@ -1032,6 +1032,9 @@ class Evaluator:
             code = emit.binop(labels, op, other.code) if names is left \
                 else emit.binop(other.code, op, labels)
             return PandasValue(code, sites=names.sites + other.sites + (site,))
+        pivot = _pivot_compared(left, right, op)
+        if pivot is not None:
+            return pivot
         if not (_is_series_like(left) or _is_series_like(right)) or op in ("in", "not in", "is", "is not"):
             return self.generic(node)
         return self.dispatch("series.compare", PandasCall(left, op, (right,), node=node), node)
@@ -1335,6 +1338,27 @@ def parts_current(parts: Parts, env: Mapping[str, Value]) -> bool:
     return isinstance(frame, Frame) and frame.rows == source.frame.rows \
         and frame.code.text == source.frame.code.text \
         and all(frame.version(c) == v for c, v in source.versions)
+
+
+def _pivot_compared(left: Value, right: Value, op: str) -> Frame | None:
+    """`grid > 0` of a pivoted table whose columns porter does not know (an unstack, a
+    crosstab; every cell a number) and a number written in the script: a table of the same
+    labels whose cells are True/False. pandas compares a missing cell (NaN) as False, or True
+    for !=; Polars would give null (and NaN compares above every number there)."""
+    from porter.translate.context import number_cells
+    if not (isinstance(left, Frame) and isinstance(right, Opaque) and right.is_const
+            and isinstance(right.const, (int, float)) and not isinstance(right.const, bool)
+            and op in ("==", "!=", "<", "<=", ">", ">=")):
+        return None
+    pivoted, kind = number_cells(left)
+    if not pivoted or kind not in ("int", "float", None) or not left.index:
+        return None
+    cells = emit.pl("exclude", *left.index)
+    if kind != "int":
+        cells = cells.method("fill_nan", None)
+    test = emit.binop(cells, op, right.code).method("fill_null", op == "!=")
+    code = left.code.method("with_columns", test)
+    return replace(left, code=code, sites=left.sites + right.sites, number_cells=(code.text, "bool"))
 
 
 @dataclass(frozen=True)
