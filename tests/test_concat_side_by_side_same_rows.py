@@ -55,3 +55,22 @@ def test_pieces_of_other_rows_are_not_put_side_by_side() -> None:
     # the filter left a row out)
     differential(HEAD + 'r = rota[rota["minutes"] > 30]\n'
                  'result = pd.concat([rota[["visit"]], r[["hostel"]]], axis=1).reset_index(drop=True)\n')
+
+
+GROUPED = {
+    "the dummies' columns summed per group": (
+        'r = rota.assign(task=rota["tasks"].str.split(";")).explode("task")\n'
+        'r["task"] = r["task"].str.strip().str.lower()\n'
+        'done = pd.get_dummies(r["task"], prefix="did", dtype=int)\n'
+        'r = pd.concat([r.drop(columns=["tasks"]), done], axis=1)\n'
+        'result = r.groupby("cleaner")[list(done.columns)].sum().reset_index()'),
+    "columns of another frame": (
+        'other = rota[["minutes", "visit"]]\n'
+        'result = rota.groupby("hostel")[list(other.columns)].max().reset_index()'),
+}
+
+
+@pytest.mark.parametrize("source", list(GROUPED.values()), ids=list(GROUPED))
+def test_group_columns_named_by_a_list_of_names_match_pandas(source: str) -> None:
+    result = differential(HEAD + source + "\n")
+    assert not [s for s in result.sites if s.status in ("todo", "handover")], result.converted_text

@@ -768,6 +768,13 @@ class Evaluator:
                 and isinstance(args[0][0], Opaque) and args[0][0].is_const \
                 and isinstance(args[0][0].const, (str, list, tuple)):
             return self.opaque(node, _CONST_BUILTINS[name](args[0][0].const))  # list("AB")
+        if args is not None and name in ("list", "tuple") and len(args[0]) == 1 and not args[1] \
+                and isinstance(args[0][0], Scalar) and args[0][0].pytype == "list[str]" \
+                and args[0][0].of is not None:
+            # list(df.columns): the names, a plain list porter knows holds text (g[...] of it
+            # selects those columns)
+            names = args[0][0]
+            return Scalar(emit.call(name, names.code), pytype="list[str]", sites=names.sites)
         if args is not None and name == "float" and len(args[0]) == 1 and not args[1] \
                 and isinstance(args[0][0], Opaque) and isinstance(args[0][0].const, str) \
                 and args[0][0].const.strip().lower().lstrip("+-") in ("nan", "inf", "infinity"):
