@@ -64,3 +64,24 @@ def test_reindex_over_a_date_range_matches_pandas(source: str) -> None:
 def test_other_reindexes_are_todos_that_run(source: str) -> None:
     result = differential(HEAD + source + "\n")
     assert [s for s in result.sites if s.status == "todo"]
+
+
+MELTED_BACK = {
+    "melt then pivot back, the date labels written as text": (
+        'grid = stays.groupby(["night", "hostel"])["guests"].sum().unstack("hostel", fill_value=0)\n'
+        'grid = grid.reindex(season, fill_value=0).rename_axis("night")\n'
+        'long = grid.reset_index().melt(id_vars="night", var_name="hostel", value_name="bed_nights")\n'
+        'long = long[long["bed_nights"] > 0]\n'
+        'back = long.pivot(index="night", columns="hostel", values="bed_nights").fillna(0)\n'
+        'back.index = back.index.strftime("%d %b")\n'
+        'result = back.rename_axis(index="night", columns=None).reset_index()'),
+    "a pivot of floats, its totals": (
+        'back = stays.dropna(subset=["night"]).drop_duplicates(["night", "hostel"]).pivot(index="night", columns="hostel", values="paid")\n'
+        'result = back.max().reset_index()'),
+}
+
+
+@pytest.mark.parametrize("source", list(MELTED_BACK.values()), ids=list(MELTED_BACK))
+def test_pivot_back_matches_pandas(source: str) -> None:
+    result = differential(HEAD + source + "\n")
+    assert not [s for s in result.sites if s.status in ("todo", "handover")], result.converted_text

@@ -2655,8 +2655,16 @@ def pivot(call: PandasCall, ctx: RuleContext) -> Value:
     # Polars names the column of a missing key "null"; pandas' label is NaN, whose text is "nan"
     code = code.method("rename", {"null": "nan"}, strict=False)
     int_labels = (index,) if frame.dtype(columns) == "int" else None
-    return Frame(code.method("lazy"), columns=None, index=(index,), labels_intact=False,
-                 int_labels_except=int_labels, columns_name=columns)
+    code = code.method("lazy")
+    # the index key keeps its type (a date key's labels are dates: df.index.strftime); the
+    # cells are the values, floats staying floats (whole numbers are float where a
+    # combination is missing, which the data decides)
+    dtypes = ((index, frame.dtype(index)),) if frame.dtype(index) is not None else ()
+    cells = (code.text, "float") if value_dtype == "float" else (
+        (code.text, None) if value_dtype == "int" else None)
+    return Frame(code, columns=None, index=(index,), labels_intact=False, dtypes=dtypes,
+                 int_labels_except=int_labels, columns_name=columns, number_cells=cells,
+                 columns_kind=frame.dtype(columns))
 
 
 # -- groupby().apply(f) where f makes one row of aggregates ---------------------------------------
