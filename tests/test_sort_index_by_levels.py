@@ -61,3 +61,20 @@ def test_sort_by_levels_matches_pandas(source: str) -> None:
 ])
 def test_other_level_sorts_run(source: str) -> None:
     differential(HEAD + source + "\n")
+
+
+SWAPPED = {
+    "swaplevel then sort_index": 'result = per.swaplevel().sort_index().reset_index()',
+    "swaplevel alone keeps the rows' order": 'result = per.swaplevel().reset_index()',
+    "three levels by name, then xs": (
+        't = stays.groupby(["hostel", "dorm", "night"])["guests"].sum()\n'
+        'result = t.swaplevel("hostel", "night").sort_index().xs(1, level="night").reset_index()'),
+    "by position, then a level sorted descending": (
+        'result = per.swaplevel(0, 1).sort_index(level="dorm", ascending=False).reset_index()'),
+}
+
+
+@pytest.mark.parametrize("source", list(SWAPPED.values()), ids=list(SWAPPED))
+def test_swaplevel_matches_pandas(source: str) -> None:
+    result = differential(HEAD + source + "\n")
+    assert not [s for s in result.sites if s.status in ("todo", "handover")], result.converted_text

@@ -407,6 +407,45 @@ def series_droplevel(call: PandasCall, ctx: RuleContext) -> Value:
                   nullable_int=column.nullable_int)
 
 
+@rule("series.swaplevel")
+def series_swaplevel(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.swaplevel(i, j) of a Series labelled by several key columns -> the key columns in
+    their new order (select), the rows as they were.
+
+    Handles: levels by name or position (-2 and -1 by default); the rows keep their order,
+    no longer sorted by the first key (sort_index() sorts them by the new order).
+    Caveats: a Series whose labels are row numbers or unnamed keys, and a computed Series
+    without a name, are TODOs."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "i", "j", positional=2)
+    frame = column.frame
+    keys = list(frame.index)
+    if len(keys) < 2 or frame.index_unnamed or row_labels_carried(frame):
+        raise ctx.todo("a Series labelled by other than several named key columns")
+    picked = []
+    for name, position, default in (("i", 0, -2), ("j", 1, -1)):
+        level = call.const(name, position, default, kinds=(str, int))
+        if isinstance(level, int) and not isinstance(level, bool) and -len(keys) <= level < len(keys):
+            picked.append(level % len(keys))
+        elif isinstance(level, str) and keys.count(level) == 1:
+            picked.append(keys.index(level))
+        else:
+            raise ctx.todo(f"level {level!r} is not a level of the index (pandas raises)")
+    first, second = picked
+    keys[first], keys[second] = keys[second], keys[first]
+    name = column.name
+    if name is None or name in keys or column.code.text != emit.col(name).text:
+        raise ctx.todo("a computed Series: name it and reset_index() first")
+    code = frame.code.method("select", *keys, name)
+    swapped = derive(frame, code, same_rows=True, index=tuple(keys), columns=(*keys, name),
+                     dtypes=tuple((c, t) for c, t in frame.dtypes if c in (*keys, name)),
+                     grouped_rows=None)
+    return Column(column.code, frame=swapped, name=name, dtype=column.dtype,
+                  null_is_false=column.null_is_false, float_int=column.float_int,
+                  nullable_int=column.nullable_int)
+
+
 @rule("series.reset_index")
 def series_reset_index(call: PandasCall, ctx: RuleContext) -> Value:
     """s.reset_index() -> a frame of the index columns and the values (name= renames them)."""
