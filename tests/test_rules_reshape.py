@@ -251,11 +251,18 @@ def test_unstack_left_to_pandas_keeps_pandas_layout(call: str) -> None:
     differential(FRAME + f"result = {call}.reset_index()\n")
 
 
-def test_melt_ports_to_unpivot_in_pandas_order() -> None:
+def test_melt_ports_to_selects_stacked_in_pandas_order() -> None:
+    # one select per value column, stacked: pandas' order without numbering and sorting rows
     check_ports(FRAME + 'result = df.melt(id_vars="shop", value_vars=["qty", "n"])\n',
-                '.with_row_index("__melt_row").unpivot(["qty", "n"], index=["shop", "__melt_row"])'
-                '.sort(pl.col("variable").cast(pl.Enum(["qty", "n"])), "__melt_row")'
-                '.drop("__melt_row")')
+                'pl.concat([df.select("shop", pl.lit("qty").alias("variable"), '
+                'pl.col("qty").alias("value")), df.select("shop", pl.lit("n").alias("variable"), '
+                'pl.col("n").alias("value"))], how="vertical_relaxed")')
+
+
+def test_melt_of_an_expression_stacks_the_selects_in_a_pipe() -> None:
+    result = differential(FRAME + 'result = df[df["n"] > 1].melt(id_vars="shop", value_vars=["size", "n"], var_name="what")\n')
+    assert "lambda frame: pl.concat([frame.select(" in result.converted_text
+    assert "__melt_row" not in result.converted_text
 
 
 @pytest.mark.parametrize("call", [

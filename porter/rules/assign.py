@@ -28,7 +28,7 @@ from porter.translate.context import (
 )
 from porter.rules.strings import LIST_STR, expanded_columns, list_repr
 from porter.translate.handover import (makes_periods, makes_python_ints, orders_categories,
-                                       pandas_text, text_categories)
+                                       pandas_text, series_frame, text_categories)
 from porter.translate.values import (
     MISSING, NOT_NULLABLE, Column, Frame, Indexed, Opaque, PandasValue, Parts, Scalar, Value,
     fresh_token,
@@ -736,6 +736,15 @@ def join_parts(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(other, Indexed) and not other.frame.index:
         # other.set_index("k"): its frame, the key held as its index
         other = replace(other.frame, index=(other.key,), index_unnamed=False)
+    if isinstance(other, Column) and other.name is not None and other.frame.index \
+            and not other.element and not call.has("on") and other.name not in other.frame.index:
+        # a named Series labelled by key columns: the frame of its keys and its values
+        # (pandas joins it as that one-column frame)
+        other = Frame(series_frame(other), columns=(*other.frame.index, other.name),
+                      index=other.frame.index, index_unnamed=other.frame.index_unnamed,
+                      dtypes=tuple((k, t) for k, t in other.frame.dtypes if k in other.frame.index)
+                      + (((other.name, other.dtype),) if other.dtype else ()),
+                      labels_intact=False)
     if isinstance(other, Frame) and not call.has("on"):
         return _join_on_index(frame, other, call, ctx, advice)
     if not isinstance(other, Parts) or call.has("on"):
@@ -767,10 +776,15 @@ def _join_on_index(frame: Frame, other: Frame, call: PandasCall, ctx: RuleContex
     pandas aligns the rows on their labels: each left row with the right rows of its label (a
     missing label matches a missing one, nulls_equal), in the left's order, then the right's;
     the result keeps the left's index. An int column of the right frame is float64 in pandas
-    where a left row found no label (made Float64 once the join has run, as after a merge)."""
+    where a left row found no label (made Float64 once the join has run, as after a merge).
+    how="outer" (one key): the labels of both, sorted, a missing one last; int columns of
+    either side float64 where a label the other side lacks left them missing. `other` may be
+    a named Series labelled by the same key (joined as its one-column frame)."""
     how = call.const("how", 2, "left", kinds=(str,))
-    if how not in ("left", "inner"):
+    if how not in ("left", "inner", "outer"):
         raise ctx.todo(f"how={how!r}: " + advice)
+    if how == "outer" and len(frame.index) != 1:
+        raise ctx.todo("how='outer' on labels of several keys: " + advice)
     if call.const("sort", 5, False) is not False or call.has("validate") \
             or call.has("lsuffix") or call.has("rsuffix"):
         raise ctx.todo("sort, validate or suffixes: " + advice)
@@ -792,10 +806,25 @@ def _join_on_index(frame: Frame, other: Frame, call: PandasCall, ctx: RuleContex
     else:
         ctx.lower("the columns of a frame are not known: pandas raises where both frames have "
                   "a column of one name, Polars suffixes the right one", 0.95)
-    code = frame.code.method("join", other.code, on=emit.names_arg(keys), how=how,
-                             nulls_equal=True, maintain_order="left_right")
+    if how == "outer":
+        # pandas' outer join on the labels: the union of both sides' labels, sorted (a
+        # missing label last), the rows of one label in the left's order then the right's
+        code = frame.code.method("join", other.code, on=emit.names_arg(keys), how="full",
+                                 coalesce=True, nulls_equal=True,
+                                 maintain_order="left_right") \
+            .method("sort", keys[0], nulls_last=True, maintain_order=True)
+    else:
+        code = frame.code.method("join", other.code, on=emit.names_arg(keys), how=how,
+                                 nulls_equal=True, maintain_order="left_right")
     dtypes = {**dict(other.dtypes), **dict(frame.dtypes)}
     ints = [c for c in right_columns or () if other.dtype(c) == "int"] if how == "left" else []
+    if how == "outer":
+        # a label one side lacks leaves the other side's columns missing: float64 in pandas
+        left_columns = [c for c in frame.columns or () if c not in keys]
+        ints = [c for c in left_columns if frame.dtype(c) == "int"] \
+            + [c for c in right_columns or () if other.dtype(c) == "int"]
+        if frame.columns is None or right_columns is None:
+            raise ctx.todo("how='outer' of a frame whose columns porter does not know: " + advice)
     if ints:
         code = floats_where_missing(code, ints)
         dtypes = {c: t for c, t in dtypes.items() if c not in ints}

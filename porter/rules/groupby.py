@@ -693,6 +693,21 @@ def groupby_getitem(call: PandasCall, ctx: RuleContext) -> Value:
                        group_keys=grouped.group_keys, selection=tuple(key.const), single=False,
                        prepared=grouped.prepared, key_list=grouped.key_list,
                        pandas=grouped.pandas, hides_column=grouped.hides_column)
+    if isinstance(key, Scalar) and key.pytype == "list[str]" and not grouped.prepared \
+            and grouped.pandas is None and not grouped.frame.index:
+        # g[cols] of a list of names made when the script runs (list(other.columns)): the
+        # frame narrowed to the keys and those columns, grouped as a frame whose other
+        # columns porter does not know (a key named in the list, which pandas aggregates as
+        # a column too, makes Polars raise on the name held twice: never a table without it)
+        frame = grouped.frame
+        keys = list(grouped.keys)
+        chosen = emit.pl("col", key.code)
+        narrowed = derive(frame, frame.code.method("select", *keys, chosen), same_rows=True,
+                          columns=None, dtypes=tuple((k, t) for k, t in frame.dtypes if k in keys))
+        return Grouped(narrowed.code, frame=narrowed, keys=grouped.keys, sort=grouped.sort,
+                       dropna=grouped.dropna, as_index=grouped.as_index,
+                       group_keys=grouped.group_keys, selection=None, single=False,
+                       key_list=grouped.key_list)
     raise Unsupported("selecting group columns by a computed key")
 
 
@@ -2974,8 +2989,16 @@ def pivot(call: PandasCall, ctx: RuleContext) -> Value:
     # Polars names the column of a missing key "null"; pandas' label is NaN, whose text is "nan"
     code = code.method("rename", {"null": "nan"}, strict=False)
     int_labels = (index,) if frame.dtype(columns) == "int" else None
-    return Frame(code.method("lazy"), columns=None, index=(index,), labels_intact=False,
-                 int_labels_except=int_labels, columns_name=columns)
+    code = code.method("lazy")
+    # the index key keeps its type (a date key's labels are dates: df.index.strftime); the
+    # cells are the values, floats staying floats (whole numbers are float where a
+    # combination is missing, which the data decides)
+    dtypes = ((index, frame.dtype(index)),) if frame.dtype(index) is not None else ()
+    cells = (code.text, "float") if value_dtype == "float" else (
+        (code.text, None) if value_dtype == "int" else None)
+    return Frame(code, columns=None, index=(index,), labels_intact=False, dtypes=dtypes,
+                 int_labels_except=int_labels, columns_name=columns, number_cells=cells,
+                 columns_kind=frame.dtype(columns))
 
 
 # -- groupby().apply(f) where f makes one row of aggregates ---------------------------------------

@@ -961,9 +961,13 @@ def _side_by_side(call: PandasCall, ctx: RuleContext) -> Value:
     node = call.first_node("objs")
     if not isinstance(node, (cst.List, cst.Tuple)) or len(node.elements) < 2:
         raise ctx.todo("axis=1 of Series not written out as a list: join on the label columns")
+    given = [ctx.evaluate(element.value, {}) if isinstance(element, cst.Element) else None
+             for element in node.elements]
+    same = _same_rows_side_by_side(given, ctx)
+    if same is not None:
+        return same
     pieces: list[Column] = []
-    for element in node.elements:
-        value = ctx.evaluate(element.value, {}) if isinstance(element, cst.Element) else None
+    for value in given:
         if not isinstance(value, Column) or len(value.frame.index) != 1 \
                 or value.name is None or value.name in value.frame.index:
             raise ctx.todo("axis=1 of values other than named Series labelled by one key "
@@ -1011,6 +1015,46 @@ def _side_by_side(call: PandasCall, ctx: RuleContext) -> Value:
                   "where a label finds no value, Polars keeps its type", 0.95)
     return Frame(code, columns=(key, *names), index=(key,), index_unnamed=shared is None,
                  labels_intact=False, dtypes=tuple(dtypes.items()))
+
+
+def _same_rows_side_by_side(given: list[Value | None], ctx: RuleContext) -> Value | None:
+    """pd.concat([df, s, dummies], axis=1) of frames and named Series that all hold the same
+    rows in the same order (a frame, columns computed from it, pd.get_dummies of one of its
+    columns) -> pl.concat(how="horizontal"). Their labels are the same labels in the same
+    order (repeated ones too, after an explode), so pandas puts them side by side as they
+    are. None when the pieces are not all such."""
+    pieces: list[tuple[Code, tuple[str, ...] | None, Frame]] = []
+    for value in given:
+        if isinstance(value, Frame):
+            pieces.append((value.code, value.columns, value))
+        elif isinstance(value, Column) and value.name is not None and not value.element:
+            pieces.append((handover.series_frame(value), (value.name,), value.frame))
+        else:
+            return None
+    frames = [f for _, _, f in pieces]
+    if len({f.rows for f in frames}) != 1 or any(f.index for f in frames):
+        return None
+    known = [c for _, columns, _ in pieces for c in columns or ()]
+    if len(set(known)) != len(known):
+        raise ctx.todo("frames side by side holding a column of one name (pandas keeps both, "
+                       "Polars cannot)")
+    unknown = any(columns is None for _, columns, _ in pieces)
+    if unknown:
+        ctx.lower("a piece whose columns porter does not know: a name two pieces share makes "
+                  "Polars raise where pandas keeps both columns", 0.95)
+    dtypes: dict[str, str] = {}
+    for _, columns, frame in pieces:
+        for name in columns or ():
+            if frame.dtype(name) is not None:
+                dtypes[name] = frame.dtype(name)  # type: ignore[assignment]
+    for value in given:
+        if isinstance(value, Column) and value.dtype is not None and value.name is not None:
+            dtypes[value.name] = value.dtype
+    code = emit.pl("concat", [code for code, _, _ in pieces], how="horizontal")
+    first = frames[0]
+    return Frame(code, columns=None if unknown else tuple(known), dtypes=tuple(dtypes.items()),
+                 rows=first.rows, labels_intact=first.labels_intact,
+                 sites=tuple(s for f in frames for s in f.sites))
 
 
 # the key column of labels whose index pandas leaves unnamed (reset_index() names it "index")

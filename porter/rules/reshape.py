@@ -21,7 +21,7 @@ from porter.rules.io_options import COUNT_MARGINS_FUNCTION, DIVIDE_FUNCTION, QUA
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, check_same_rows, column_names, derived_column,
 )
-from porter.translate.values import Column, Frame, Items, Opaque, PandasValue, Value
+from porter.translate.values import Column, Frame, Items, Opaque, PandasValue, Value, fresh_token
 
 _NUMBER_TYPES = ("int", "float")
 
@@ -328,9 +328,13 @@ def unstack(call: PandasCall, ctx: RuleContext) -> Value:
     # pandas_unstacked makes them float when a combination is missing, which depends on the data)
     kind = "float" if column.dtype == "float" or isinstance(fill, float) else (
         "int" if fill is not None else None)
+    # one row per combination of the other keys, sorted: labels of distinct values in a
+    # groupby's order
+    rows = fresh_token()
     return Frame(code, columns=None, index=tuple(rest), dtypes=dtypes,
                  labels_intact=False, int_labels_except=int_labels, columns_name=on,
-                 number_cells=(code.text, kind), columns_kind=frame.dtype(on))
+                 number_cells=(code.text, kind), columns_kind=frame.dtype(on), rows=rows,
+                 grouped_rows=rows)
 
 
 _STACK_ROW = "__stack_row"
@@ -491,6 +495,17 @@ def melt(call: PandasCall, ctx: RuleContext) -> Value:
         options["value_name"] = value_name
     if value_vars is not None and len(value_vars) == 1:  # one piece: rows stay in order
         code = frame.code.method("unpivot", value_vars[0], **options)
+    elif value_vars is not None and value_dtype is not None:
+        # pandas' order, every row of the first value column, then of the second, ...: one
+        # select per value column, stacked in that order (four times faster than numbering
+        # the rows of an unpivot and sorting them back on a million rows); whole numbers
+        # beside floats made floats, as pandas makes them
+        source = frame.code if frame.code.text.isidentifier() else emit.atom("frame")
+        pieces = [source.method("select", *id_vars, emit.pl("lit", v).method("alias", var_name),
+                                emit.col(v).method("alias", value_name)) for v in value_vars]
+        stacked = emit.pl("concat", pieces, how="vertical_relaxed")
+        code = stacked if frame.code.text.isidentifier() else frame.code.method(
+            "pipe", emit.atom(f"lambda frame: {stacked.text}"))
     else:
         options["index"] = [*id_vars, _MELT_ROW]
         # the value columns in the frame's order (the id columns among them are never values)
@@ -611,7 +626,10 @@ def get_dummies(call: PandasCall, ctx: RuleContext) -> Value:
         exprs = _dummies(name, prefix, sep, cast, drop_first, dummy_na)
         code = source.method("collect").method(
             "pipe", emit.atom(f"lambda d: d.select({', '.join(e.text for e in exprs)})"))
-        return Frame(code.method("lazy"), columns=None, labels_intact=data.frame.labels_intact)
+        # one row of dummies per row of the Series, in its order: the same rows (pd.concat
+        # axis=1 puts them beside the frame as they are)
+        return Frame(code.method("lazy"), columns=None, labels_intact=data.frame.labels_intact,
+                     rows=data.frame.rows)
 
     if not isinstance(data, Frame):
         raise Unsupported("get_dummies of something other than a frame or column porter tracks")

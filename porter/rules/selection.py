@@ -1741,6 +1741,23 @@ def series_xs(call: PandasCall, ctx: RuleContext) -> Value:
     return replace(column, code=ctx.expr(column, frame), frame=left, sites=())
 
 
+@rule("series.name")
+def series_name(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.index.name -> the name of the key column that labels the rows, a constant.
+
+    Handles: a table labelled by one key column (set_index, read_csv(index_col=), a groupby's
+    key, pivot's index) reads its key's name; a table whose labels have no name (0..n-1, a
+    reindex over a date range, a rename_axis(None)) reads None, as pandas.
+    Caveats: the name of any other Series is a TODO (porter does not follow the names pandas
+    gives the results of arithmetic)."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    if not column.index_values:
+        raise ctx.todo("the name of a Series other than a table's labels: pandas names "
+                       "the results of arithmetic by rules of its own")
+    return Scalar(emit.lit(column.name), pytype="str" if column.name is not None else None)
+
+
 @rule("series.is_unique")
 def series_is_unique(call: PandasCall, ctx: RuleContext) -> Value:
     """s.is_unique / df.index.is_unique -> pl.col(c).is_unique().all(), collected.

@@ -834,6 +834,57 @@ def group_head(call: PandasCall, ctx: RuleContext) -> Value:
     return _group_rows(call, grouped, keep)
 
 
+@rule("groupby.nlargest", "groupby.nsmallest")
+def group_nlargest(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.groupby(level=k, group_keys=False).nlargest(n) -> the Series' rows sorted by value,
+    the first n of each group kept, the groups in key order.
+
+    Handles: each group's n largest (nsmallest: smallest) values, ties in the Series' own
+    order (keep="first"), missing and NaN values after the numbers where a group has fewer than
+    n numbers, as Series.nlargest puts them; the groups one after another in sorted key order (sort=True), rows of a missing key left out
+    (dropna=True); the rows keep their labels (the Series' keys), as group_keys=False does.
+    Caveats: an empty Series gives pandas one unnamed level of labels (0.95). group_keys=True
+    (pandas puts the group's key in front of the labels, a level of the same name twice),
+    sort=False, keep="last" / "all" and values that are not numbers are
+    TODOs."""
+    grouped = call.receiver
+    assert isinstance(grouped, Grouped)
+    ctx.reject_unknown(call, "n", "keep", positional=1)
+    n = call.const("n", 0, 5, kinds=(int,))
+    if call.const("keep", None, "first", kinds=(str,)) != "first":
+        raise ctx.todo('keep="last" or "all": ties kept otherwise')
+    if grouped.group_keys:
+        raise ctx.todo("group_keys=True: pandas puts each group's key in front of the Series' "
+                       "labels (the key's level twice); group_keys=False keeps the labels")
+    if not grouped.sort:
+        raise ctx.todo("sort=False: the groups in the order they first appear")
+    if not grouped.single or not grouped.selection or grouped.selection[0] in grouped.keys:
+        raise ctx.todo("nlargest of a frame's groups (pandas raises) or of a key column")
+    frame = grouped.frame
+    name = grouped.selection[0]
+    column = column_of(frame, name)
+    if column.dtype not in ("int", "float"):
+        raise ctx.todo(f"values of type {column.dtype or 'unknown'}")
+    # missing and NaN values come after the numbers, in the Series' order, where a group has
+    # fewer than n numbers (pandas appends them to the values it sorted)
+    values = emit.col(name)
+    if column.dtype == "float":
+        values = values.method("fill_nan", None)
+    kwargs: dict[str, object] = {"descending": True} if call.name == "nlargest" else {}
+    # a stable sort by value keeps tied values in the Series' order (keep="first"); the
+    # first n of each group by that order, then the groups in key order, stably
+    code = frame.code
+    if grouped.dropna:
+        code = code.method("filter", _keys_present(grouped))
+    code = code.method("sort", values, **kwargs, nulls_last=True, maintain_order=True) \
+        .method("filter", emit.binop(_positions(grouped, False), "<", n)) \
+        .method("sort", list(grouped.keys), maintain_order=True)
+    ctx.lower("an empty Series: pandas' result has one unnamed level of labels where the "
+              "conversion keeps the keys", 0.95)
+    rows = derive(frame, code, same_rows=False)
+    return column_of(rows, name)
+
+
 @rule("groupby.nth")
 def group_nth(call: PandasCall, ctx: RuleContext) -> Value:
     """df.groupby(keys).nth(i) / nth([i, j]) -> df.filter(place in group is i), in the frame's

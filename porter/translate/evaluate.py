@@ -481,6 +481,13 @@ class Evaluator:
         if isinstance(receiver, Accessor):
             names = pandas_names.STR if receiver.kind == "str" else \
                 _WINDOW_METHODS if receiver.kind in handover.WINDOW_KINDS else pandas_names.DT
+            if receiver.kind == "dt" and name == "name" and receiver.index_of is not None:
+                # df.index.name of a table labelled by one date key: the series.name rule
+                # reads the key column's name
+                labels = replace(receiver.column, index_values=True,
+                                 name=None if receiver.index_of.index_unnamed
+                                 else receiver.index_of.index[0])
+                return self.dispatch("series.name", PandasCall(labels, name, node=node), node)
             if receiver.kind == "dt" and name in _DT_PROPERTIES:
                 return self.dispatch(f"series.dt.{name}", PandasCall(receiver, name, node=node), node)
             if receiver.kind == "dt" and name in _PERIOD_METHODS:  # of s.dt.to_period(...)
@@ -655,6 +662,13 @@ class Evaluator:
             kept = tuple(s for s in names.sites if s.key != "frame.columns")
             return BoundMethod(names.code, receiver=replace(names, pytype="names.pairs",
                                                             sites=kept), name=attr)
+        if attr == "name" and isinstance(names.of, Frame) and not names.of.value_levels \
+                and not names.of.column_pairs:
+            # df.columns.name: the key a pivot or unstack laid out as columns (what a hand-over
+            # gives pandas' columns with rename_axis), None for any other frame
+            name = names.of.columns_name
+            return Scalar(emit.lit(name), pytype="str" if name is not None else None,
+                          sites=names.sites)
         line, end_line = self.services.position(node)
         site = SiteDraft("frame.columns.index", "todo", "todo", 0.0,
                          f"pandas' Index.{attr} on the column names: porter's names are a list",
@@ -765,6 +779,13 @@ class Evaluator:
                 and isinstance(args[0][0], Opaque) and args[0][0].is_const \
                 and isinstance(args[0][0].const, (str, list, tuple)):
             return self.opaque(node, _CONST_BUILTINS[name](args[0][0].const))  # list("AB")
+        if args is not None and name in ("list", "tuple") and len(args[0]) == 1 and not args[1] \
+                and isinstance(args[0][0], Scalar) and args[0][0].pytype == "list[str]" \
+                and args[0][0].of is not None:
+            # list(df.columns): the names, a plain list porter knows holds text (g[...] of it
+            # selects those columns)
+            names = args[0][0]
+            return Scalar(emit.call(name, names.code), pytype="list[str]", sites=names.sites)
         if args is not None and name == "float" and len(args[0]) == 1 and not args[1] \
                 and isinstance(args[0][0], Opaque) and isinstance(args[0][0].const, str) \
                 and args[0][0].const.strip().lower().lstrip("+-") in ("nan", "inf", "infinity"):
@@ -1029,6 +1050,9 @@ class Evaluator:
             code = emit.binop(labels, op, other.code) if names is left \
                 else emit.binop(other.code, op, labels)
             return PandasValue(code, sites=names.sites + other.sites + (site,))
+        pivot = _pivot_compared(left, right, op)
+        if pivot is not None:
+            return pivot
         if not (_is_series_like(left) or _is_series_like(right)) or op in ("in", "not in", "is", "is not"):
             return self.generic(node)
         return self.dispatch("series.compare", PandasCall(left, op, (right,), node=node), node)
@@ -1332,6 +1356,27 @@ def parts_current(parts: Parts, env: Mapping[str, Value]) -> bool:
     return isinstance(frame, Frame) and frame.rows == source.frame.rows \
         and frame.code.text == source.frame.code.text \
         and all(frame.version(c) == v for c, v in source.versions)
+
+
+def _pivot_compared(left: Value, right: Value, op: str) -> Frame | None:
+    """`grid > 0` of a pivoted table whose columns porter does not know (an unstack, a
+    crosstab; every cell a number) and a number written in the script: a table of the same
+    labels whose cells are True/False. pandas compares a missing cell (NaN) as False, or True
+    for !=; Polars would give null (and NaN compares above every number there)."""
+    from porter.translate.context import number_cells
+    if not (isinstance(left, Frame) and isinstance(right, Opaque) and right.is_const
+            and isinstance(right.const, (int, float)) and not isinstance(right.const, bool)
+            and op in ("==", "!=", "<", "<=", ">", ">=")):
+        return None
+    pivoted, kind = number_cells(left)
+    if not pivoted or kind not in ("int", "float", None) or not left.index:
+        return None
+    cells = emit.pl("exclude", *left.index)
+    if kind != "int":
+        cells = cells.method("fill_nan", None)
+    test = emit.binop(cells, op, right.code).method("fill_null", op == "!=")
+    code = left.code.method("with_columns", test)
+    return replace(left, code=code, sites=left.sites + right.sites, number_cells=(code.text, "bool"))
 
 
 @dataclass(frozen=True)
