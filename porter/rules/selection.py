@@ -479,6 +479,18 @@ def _labelled_value(frame: Frame, label: Opaque, col: Opaque, ctx: RuleContext) 
     return Scalar(code, pytype=pytype if pytype in ("int", "float", "str", "bool") else None)
 
 
+# print(df.loc[label]) without pandas: the rows holding the label, or pandas' KeyError
+LABEL_ROWS_FUNCTION = "pandas_label_rows"
+LABEL_ROWS_DEFINITION = '''\
+def pandas_label_rows(rows, label):
+    """The rows of df.loc[label] to print (those whose keys hold the label, picked in Polars),
+    shown as Polars shows a frame; KeyError where no row holds it, as pandas raises."""
+    if not rows.height:
+        raise KeyError(label)
+    return rows
+'''
+
+
 def _rows_by_label(frame: Frame, label: Opaque, ctx: RuleContext) -> Value:
     """df.loc["label"] of a table labelled by one key column (set_index, read_csv(index_col=),
     a groupby's keys), or df.loc[("a", "b")] of one labelled by as many: the rows whose keys
@@ -487,7 +499,8 @@ def _rows_by_label(frame: Frame, label: Opaque, ctx: RuleContext) -> Value:
     as on the whole table: the row Series (values typed as pandas types a row of that frame,
     named by the label) when one row holds the label, a frame of those rows in their order
     when several do (porter cannot tell which from the script: a key read from a file may
-    repeat), KeyError when none does."""
+    repeat), KeyError when none does. Only printed or displayed, the rows are shown in Polars
+    (pandas_label_rows), as a printed frame is."""
     parts = label.const if isinstance(label.const, tuple) else (label.const,)
     if not frame.index or len(parts) > len(frame.index) or row_labels_carried(frame) \
             or isinstance(label.const, tuple) and len(frame.index) == 1:
@@ -499,6 +512,12 @@ def _rows_by_label(frame: Frame, label: Opaque, ctx: RuleContext) -> Value:
     picked = derive(frame, frame.code.method("filter", *(
         emit.binop(emit.col(k), "==", emit.lit(p)) for p, k in zip(parts, frame.index))),
         same_rows=False)
+    if ctx.shown:
+        # only printed or displayed: the rows are shown as Polars shows a frame (as print(df)
+        # is), without importing pandas for them (the import costs more than the script's
+        # own work on a short run); KeyError where no row holds the label, as pandas raises
+        return Opaque(emit.call(LABEL_ROWS_FUNCTION, picked.code.method("collect"),
+                                emit.lit(label.const)), sites=label.sites)
     ctx.handover = True
     chain = to_pandas(picked)
     step = f".loc[{emit.lit(label.const).text}]"
