@@ -480,6 +480,18 @@ def _labelled_value(frame: Frame, label: Opaque, col: Opaque, ctx: RuleContext) 
     return Scalar(code, pytype=pytype if pytype in ("int", "float", "str", "bool") else None)
 
 
+# print(df.loc[label]) without pandas: the rows holding the label, or pandas' KeyError
+LABEL_ROWS_FUNCTION = "pandas_label_rows"
+LABEL_ROWS_DEFINITION = '''\
+def pandas_label_rows(rows, label):
+    """The rows of df.loc[label] to print (those whose keys hold the label, picked in Polars),
+    shown as Polars shows a frame; KeyError where no row holds it, as pandas raises."""
+    if not rows.height:
+        raise KeyError(label)
+    return rows
+'''
+
+
 def _rows_by_label(frame: Frame, label: Opaque, ctx: RuleContext) -> Value:
     """df.loc["label"] of a table labelled by one key column (set_index, read_csv(index_col=),
     a groupby's keys), or df.loc[("a", "b")] of one labelled by as many: the rows whose keys
@@ -488,7 +500,8 @@ def _rows_by_label(frame: Frame, label: Opaque, ctx: RuleContext) -> Value:
     as on the whole table: the row Series (values typed as pandas types a row of that frame,
     named by the label) when one row holds the label, a frame of those rows in their order
     when several do (porter cannot tell which from the script: a key read from a file may
-    repeat), KeyError when none does."""
+    repeat), KeyError when none does. Only printed or displayed, the rows are shown in Polars
+    (pandas_label_rows), as a printed frame is."""
     parts = label.const if isinstance(label.const, tuple) else (label.const,)
     if not frame.index or len(parts) > len(frame.index) or row_labels_carried(frame) \
             or isinstance(label.const, tuple) and len(frame.index) == 1:
@@ -500,12 +513,75 @@ def _rows_by_label(frame: Frame, label: Opaque, ctx: RuleContext) -> Value:
     picked = derive(frame, frame.code.method("filter", *(
         emit.binop(emit.col(k), "==", emit.lit(p)) for p, k in zip(parts, frame.index))),
         same_rows=False)
+    if ctx.shown:
+        # only printed or displayed: the rows are shown as Polars shows a frame (as print(df)
+        # is), without importing pandas for them (the import costs more than the script's
+        # own work on a short run); KeyError where no row holds the label, as pandas raises
+        return Opaque(emit.call(LABEL_ROWS_FUNCTION, picked.code.method("collect"),
+                                emit.lit(label.const)), sites=label.sites)
     ctx.handover = True
     chain = to_pandas(picked)
     step = f".loc[{emit.lit(label.const).text}]"
+    rows = (picked, label.const)  # a reduction of the row is computed without pandas
     if chain.base is not None and chain.steps:  # laid out one step per line, .loc[...] the last
-        return PandasValue(Code(f"{chain.text}{step}", emit.ATOM, chain.base, (*chain.steps, step)))
-    return PandasValue(chain.attr("loc").index(label.const))
+        return PandasValue(Code(f"{chain.text}{step}", emit.ATOM, chain.base, (*chain.steps, step)),
+                           label_rows=rows)
+    return PandasValue(chain.attr("loc").index(label.const), label_rows=rows)
+
+
+# df.loc[label].sum() of a table of numbers without pandas: the row's floats added as numpy adds
+ROW_SUM_FUNCTION = "pandas_row_sum"
+ROW_SUM_DEFINITION = '''\
+def pandas_row_sum(rows, keys, label, by_pandas):
+    """df.loc[label].sum() without pandas, where one row holds the label and its values are
+    numbers, one float column or more: pandas' row is then float64 (whole numbers become
+    floats, a missing value is NaN), and its sum counts a missing value 0 and adds as numpy
+    adds. KeyError where no row holds the label. Where several do (pandas' .loc gives a
+    frame, whose sum is per column), or the values are of other types (whole numbers only,
+    whose row type pandas decides from missing values anywhere in the columns; text,
+    True/False, dates), by_pandas(rows) computes it with pandas from the rows."""
+    found = rows.collect()
+    if not found.height:
+        raise KeyError(label)
+    values = found.drop(keys)
+    types = values.schema.values()
+    if found.height != 1 or pl.Float64 not in types or not all(
+            t.is_integer() or t in (pl.Float32, pl.Float64) for t in types):
+        return by_pandas(rows)
+    import numpy as np
+
+    numbers = np.array([np.nan if v is None else v for v in values.cast(pl.Float64).row(0)],
+                       dtype=np.float64)
+    numbers[np.isnan(numbers)] = 0.0
+    return numbers.sum()
+'''
+
+
+@rule("frame.loc.row.sum")
+def label_row_sum(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.loc[label].sum() -> the sum of the row holding the label, computed from the rows
+    picked in Polars (pandas_row_sum), without handing them to pandas.
+
+    Handles: a row of numbers, one float column or more (pandas' row is then float64: whole
+    numbers become floats, a missing value or NaN is skipped), added as numpy adds them
+    (pandas' sum); KeyError where no row holds the label. Decided on the rows when the
+    script runs (the columns of a pivot are known only then): a label several rows hold
+    (pandas' .loc gives a frame, whose sum is per column), and rows of whole numbers only
+    (pandas' row type depends on missing values anywhere in a column), of text, True/False or
+    dates are summed by pandas from the rows picked.
+    Caveats: options of sum stay on pandas."""
+    receiver = call.receiver
+    assert isinstance(receiver, PandasValue) and receiver.label_rows is not None
+    picked, label = receiver.label_rows
+    by_pandas = receiver.code.method(
+        "sum", *(a.code for a in call.args), **{k: v.code for k, v in call.kwargs.items()})
+    if call.args or call.kwargs:
+        ctx.handover = True  # pandas' own sum of the row it was handed
+        return PandasValue(by_pandas)
+    handed = to_pandas(replace(picked, code=emit.atom("rows")))
+    lazy = emit.atom(f"lambda rows: {handed.text}.loc[{emit.lit(label).text}].sum()")
+    return Scalar(emit.call(ROW_SUM_FUNCTION, picked.code, emit.lit(list(picked.index)),
+                            emit.lit(label), lazy))
 
 
 def _column_label_slice(frame: Frame, piece: slice) -> Frame:

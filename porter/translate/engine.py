@@ -35,7 +35,7 @@ from porter.translate.context import (
 )
 from porter.translate.evaluate import Evaluator, Services, parts_current
 from porter.translate.values import (
-    MISSING, Column, Frame, Grouped, Indexed, Module, Opaque, PandasValue, Parts, Scalar, Value,
+    MISSING, Accessor, Column, Frame, Grouped, Indexed, Module, Opaque, PandasValue, Parts, Scalar, Value,
     fresh_token, is_pandas,
 )
 
@@ -2319,6 +2319,24 @@ class _Walker:
             env[name] = Opaque(emit.atom(name), const=const, pytype=pytype)
         elif isinstance(value, Module):
             env[name] = Module(emit.atom(name), qualname=value.qualname)
+        elif isinstance(value, Accessor) and value.kind == "dt" and value.index_of is not None \
+                and len(value.index_of.index) == 1:
+            # `idx = df.index` of a table labelled by one date key: the name holds a frame of
+            # the key alone (its labels, in the table's order), whose DatetimeIndex methods
+            # are ported as on df.index itself; pandas is not imported to hold the labels
+            key = value.index_of.index[0]
+            code = value.index_of.code.method("select", key)
+            if self.emit_code and (self.computed_once() or self.read_changed_later()) \
+                    and not _is_collected(code):
+                code = code.method("collect").method("lazy")
+            self.note_parents(code, env)
+            frame = Frame(emit.atom(name), columns=(key,), rows=fresh_token(), index=(key,),
+                          labels_intact=value.index_of.labels_intact,
+                          index_unnamed=value.index_of.index_unnamed,
+                          dtypes=((key, "datetime"),), binding=self.statement_key)
+            env[name] = replace(value, code=Code(f"{name}.index"), sites=(), index_of=frame,
+                                column=replace(value.column, code=emit.col(key), frame=frame,
+                                               binding=self.statement_key))
         else:
             code = Evaluator(env, self.services).handed_to_unknown(value, cst.Name(name)).code
             env[name] = PandasValue(emit.atom(name))
@@ -3043,6 +3061,9 @@ def _plan_of(value: Value | None) -> Value | None:
         return value.frame
     if isinstance(value, Column) and value.frame.binding is not None:
         return value.frame  # a Series kept in a name: the frame of its keys and values
+    if isinstance(value, Accessor) and value.index_of is not None \
+            and value.index_of.binding is not None:
+        return value.index_of  # a date index kept in a name: the frame of its key
     return value
 
 

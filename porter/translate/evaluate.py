@@ -427,6 +427,14 @@ class Evaluator:
             # df.set_index(k).<anything but resample / groupby / reset_index>: the table
             # labelled by k, its key column held as the index
             receiver = labelled_frame(receiver.frame, receiver.key)
+        if isinstance(receiver, PandasValue) and receiver.label_rows is not None \
+                and name in _LABEL_ROW_METHODS:
+            # df.loc[label].sum(): the row's reduction (rules/selection.py), computed from the
+            # rows .loc picked, which are then not handed to pandas
+            receiver = replace(receiver, sites=tuple(
+                replace(s, status="converted") if s.key == "frame.loc" and s.status == "handover"
+                else s for s in receiver.sites))
+            return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
         if isinstance(receiver, Frame):
             if name in ("loc", "iloc", "at") or name == "ix" and name not in (receiver.columns or ()):
                 # (.ix: label-or-position indexing pandas 1.0 removed, rules/legacy.py)
@@ -1637,6 +1645,10 @@ _SERIES_GROUPBY_ONLY = frozenset({"dtype", "is_monotonic_decreasing", "is_monoto
                                   "nlargest", "nsmallest", "unique"})
 
 
+# methods of df.loc[label] (the row of a label) with a rule: others are pandas' on the row
+_LABEL_ROW_METHODS = frozenset({"sum"})
+
+
 def _prefix(value: Value) -> str:
     if getattr(value, "key_prefix", None):  # a window within groups (rules/windows.py)
         return value.key_prefix  # type: ignore[attr-defined]
@@ -1644,6 +1656,8 @@ def _prefix(value: Value) -> str:
         return value.const.key_prefix  # the periods of pd.period_range (rules/construct.py)
     if isinstance(value, Frame):
         return "frame"
+    if isinstance(value, PandasValue) and value.label_rows is not None:
+        return "frame.loc.row"  # df.loc[label] (rules/selection.py)
     if isinstance(value, Column):
         return "element" if value.element else "series"
     if isinstance(value, Grouped):

@@ -216,6 +216,9 @@ class PandasValue(Value):
     # a name holding a frame that a statement kept on pandas changed: the frame as porter knew
     # it afterwards, so that the next statement porter can rewrite takes it back to Polars
     frame: "Frame | None" = field(default=None, kw_only=True)
+    # df.loc[label] of a table labelled by key columns: (the rows picked in Polars, the
+    # label), so that a reduction of the row can be computed without pandas
+    label_rows: "tuple[Frame, Any] | None" = field(default=None, kw_only=True)
 
 
 @dataclass(frozen=True)
