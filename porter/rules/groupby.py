@@ -2230,7 +2230,7 @@ def group_describe(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("describe of a column not known to hold numbers (pandas describes "
                           "text, True/False and dates with other statistics)")
     ctx.lower("a frame without rows: pandas describes it with an unnamed empty index (no key "
-              "column, as_index=False too), where porter keeps the key columns", 0.95)
+              "column, as_index=False too), where porter keeps the key columns", 0.9)
     values = emit.col(name)
     if dtype == "float":
         values = values.method("fill_nan", None)  # NaN is a missing value to pandas

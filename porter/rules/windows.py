@@ -880,7 +880,7 @@ def group_nlargest(call: PandasCall, ctx: RuleContext) -> Value:
         .method("filter", emit.binop(_positions(grouped, False), "<", n)) \
         .method("sort", list(grouped.keys), maintain_order=True)
     ctx.lower("an empty Series: pandas' result has one unnamed level of labels where the "
-              "conversion keeps the keys", 0.95)
+              "conversion keeps the keys", 0.9)
     rows = derive(frame, code, same_rows=False)
     return column_of(rows, name)
 
