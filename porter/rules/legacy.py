@@ -93,7 +93,7 @@ def modern_period(freq: object) -> str | None:
 from porter.emit import code as emit  # noqa: E402
 from porter.rules import registry, rule  # noqa: E402
 from porter.translate.context import PandasCall, RuleContext, Unsupported  # noqa: E402
-from porter.translate.values import Column, Frame, Opaque, Value  # noqa: E402
+from porter.translate.values import Column, Frame, Grouped, Opaque, Value  # noqa: E402
 
 
 def _const(value: object) -> Opaque:
@@ -477,14 +477,17 @@ def top_value_counts(call: PandasCall, ctx: RuleContext) -> Value:
                      PandasCall(column, "value_counts", (), kwargs, call.node), ctx)
 
 
-@rule("series.pad", "series.backfill", "frame.pad", "frame.backfill")
+@rule("series.pad", "series.backfill", "frame.pad", "frame.backfill", "groupby.pad",
+      "groupby.backfill")
 def pad_backfill(call: PandasCall, ctx: RuleContext) -> Value:
-    """s.pad() / s.backfill() (and a frame's) -> as s.ffill() / s.bfill().
+    """s.pad() / s.backfill() (and a frame's, a groupby's) -> as s.ffill() / s.bfill().
 
-    pad and backfill (deprecated in pandas 2.0, removed in 3.0; from memory) were ffill and
-    bfill under their older names, with the same options.
+    pad and backfill (deprecated in pandas 2.0, removed in 3.0; a groupby's deprecated in 1.4
+    and removed in 2.0; from memory) were ffill and bfill under their older names, with the
+    same options.
     """
-    owner = "frame" if isinstance(call.receiver, Frame) else "series"
+    owner = "frame" if isinstance(call.receiver, Frame) else \
+        "groupby" if isinstance(call.receiver, Grouped) else "series"
     today = "ffill" if call.name == "pad" else "bfill"
     return _as_today(f"{owner}.{today}",
                      PandasCall(call.receiver, today, call.args, call.kwargs, call.node), ctx)

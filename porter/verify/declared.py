@@ -49,8 +49,12 @@ def python_for(folder: str | Path) -> str | None:
     """The Python to run the original script in `folder` under: None for porter's own (nothing
     declared), else the path of a Python with the declared packages (built on first use)."""
     requirements = declared_requirements(folder)
-    if not requirements:
-        return None
+    return python_with(*requirements) if requirements else None
+
+
+def python_with(*requirements: str) -> str:
+    """The path of a Python with exactly `requirements` installed (built on first use, kept
+    in the cache folder); ReferenceUnavailable with the reason where it cannot be built."""
     if requirements not in _BUILT:
         try:
             _BUILT[requirements] = _build(requirements)
@@ -63,7 +67,8 @@ def python_for(folder: str | Path) -> str | None:
 
 
 def _build(requirements: tuple[str, ...]) -> str:
-    label = re.sub(r"[^A-Za-z0-9.]+", "-", "_".join(requirements)).strip("-")[:60]
+    spelled = "_".join(requirements).replace("==", "-").replace("<", "-lt-").replace(">", "-gt-")
+    label = re.sub(r"[^A-Za-z0-9.]+", "-", spelled).strip("-")[:60]
     digest = hashlib.sha256("\n".join(requirements).encode()).hexdigest()[:8]
     place = cache_folder() / f"{label}-{digest}"
     python = place / "bin" / "python"
