@@ -102,3 +102,41 @@ def test_frames_left_by_pandas_1_5_are_compared(pandas_1_5, tmp_path):
     statuses = {o.name: o.comparison.status for o in result.outputs}
     assert statuses.get("heavy") == "same", json.dumps(result.to_json(), indent=1, default=str)[:3000]
     assert result.verdict == "same", statuses
+
+
+# a ferry's loads: the rate of each deck in a column of its own, a text column beside them,
+# duplicated loads, a missing weight
+LOADS = """load,deck,consignee,main,upper,open,weight_t
+L1,main,Brae Stores,4.5,6.0,3.5,12.5
+L2,open,Højland,4.5,6.25,3.0,
+L2,open,Højland,4.5,6.25,3.0,
+L3,upper,Île Verte,5.0,6.25,3.5,0.0
+L4,main,mòr,5.5,6.0,3.0,30.25
+"""
+
+
+@pytest.mark.parametrize("before", ["pass", "df = df.drop_duplicates().reset_index(drop=True)"])
+def test_lookup_of_each_rows_own_column(pandas_1_5, tmp_path, before):
+    # DataFrame.lookup (removed in pandas 2): the value of the column each row's label names
+    same_under_old_pandas(pandas_1_5, tmp_path, f"""
+        import pandas as pd
+        df = pd.read_csv("data/loads.csv")
+        {before}
+        df["rate"] = df.lookup(df.index, df["deck"])
+        df["charge"] = (df["rate"] * df["weight_t"]).round(2)
+        df.to_csv("data/out.csv", index=False)
+    """, {"loads.csv": LOADS})
+
+
+@pytest.mark.parametrize("method", ["iteritems", "items"])
+def test_a_loop_over_columns_filling_a_dict(pandas_1_5, tmp_path, method):
+    # for name, values in df.iteritems(): a dict of the script's own filled per column stays a
+    # loop over the column names (it was handed to pandas, where iteritems no longer runs)
+    same_under_old_pandas(pandas_1_5, tmp_path, f"""
+        import pandas as pd
+        df = pd.read_csv("data/loads.csv")
+        gaps = {{}}
+        for name, values in df.{method}():
+            gaps[name] = int(values.isna().sum())
+        pd.DataFrame({{"column": list(gaps), "missing": list(gaps.values())}}).to_csv("data/gaps.csv", index=False)
+    """, {"loads.csv": LOADS})
