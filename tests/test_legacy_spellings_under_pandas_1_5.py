@@ -140,3 +140,26 @@ def test_a_loop_over_columns_filling_a_dict(pandas_1_5, tmp_path, method):
             gaps[name] = int(values.isna().sum())
         pd.DataFrame({{"column": list(gaps), "missing": list(gaps.values())}}).to_csv("data/gaps.csv", index=False)
     """, {"loads.csv": LOADS})
+
+
+SAILINGS = """sailed,fee,tonnes
+2023-04-28,45,1.5
+2023-04-29,60,
+2023-03-31,80,2.25
+2023-06-30,,3.0
+2023-07-01,120,0.0
+2023-09-30,150,4.5
+2023-12-30,210,1.25
+"""
+
+
+@pytest.mark.parametrize("rule", ["BM", "M", "A"])
+def test_old_month_end_aliases_in_resample(pandas_1_5, tmp_path, rule):
+    # "BM" (each month's last weekday: a Saturday the 29th falls in the next month's bin), "M"
+    # and "A", which pandas 3 spells BME, ME and YE
+    same_under_old_pandas(pandas_1_5, tmp_path, f"""
+        import pandas as pd
+        df = pd.read_csv("data/sailings.csv", parse_dates=["sailed"])
+        out = df.set_index("sailed").resample("{rule}")[["fee", "tonnes"]].sum().reset_index()
+        out.to_csv("data/out.csv", index=False)
+    """, {"sailings.csv": SAILINGS})
