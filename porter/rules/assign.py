@@ -613,22 +613,24 @@ def _frame_into_columns(frame: Frame, keys: list[str], value: Frame) -> Frame:
     """df[["a", "b"]] = other, `other` a frame of the same rows (df[["a", "b"]].applymap(f)):
     pandas writes other's columns by position into the named ones (its first column into
     "a", ...; the rows aligned on labels, which are the same rows here), the existing ones in
-    their places, new ones at the end. The two plans put side by side (a horizontal concat of
-    the same rows; Polars reads their shared input once), other's columns renamed."""
-    if frame.columns is None or value.columns is None:
-        raise Unsupported("assigning a frame to several columns: the columns are not known")
+    their places, new ones at the end, as with_columns writes them. The two plans are put side
+    by side (a horizontal concat of the same rows; Polars reads their shared input once),
+    other's columns under names of their own, then written into the named ones."""
+    if value.columns is None:
+        raise Unsupported("assigning a frame to several columns: its columns are not known")
     if frame.index or value.index:
         raise Unsupported("assigning a frame to several columns of a frame with an index of "
                           "its own")
     if len(value.columns) != len(keys) or len(set(keys)) != len(keys):
         # pandas raises "Columns must be same length as key"
         raise Unsupported("assigning a frame of another number of columns than the keys")
-    order = list(frame.columns) + [k for k in keys if k not in frame.columns]
-    kept = [c for c in frame.columns if c not in keys]
-    renamed = [emit.col(old).method("alias", new) if old != new else emit.col(old)
-               for old, new in zip(value.columns, keys)]
-    code = emit.pl("concat", [frame.code.method("select", *kept), value.code.method("select", *renamed)],
-                   how="horizontal").method("select", *order)
+    held = [f"_porter_set_{i}" for i in range(len(keys))]
+    side = value.code.method("select", *[emit.col(old).method("alias", tmp)
+                                         for old, tmp in zip(value.columns, held)])
+    code = emit.pl("concat", [frame.code, side], how="horizontal") \
+        .method("with_columns", *[emit.col(tmp).method("alias", new)
+                                  for tmp, new in zip(held, keys)]) \
+        .method("drop", *held)
     result = with_column_updates(frame, code, {new: value.dtype(old)
                                                for old, new in zip(value.columns, keys)})
     result = set_nullable_ints(result, {new: nullable_mark(value, old) or NOT_NULLABLE
