@@ -86,6 +86,14 @@ def count_calls(text: str) -> dict[str, int]:
 
 def bench(case: Path, rows: int, runs: int, work: Path) -> dict[str, object]:
     script = case / f"{case.name}.py"
+    # a case written for an older pandas (reference.txt) runs its original under that pandas;
+    # where that pandas cannot be had here the case is skipped with the reason
+    from porter.verify.declared import ReferenceUnavailable, declared_requirements, python_for
+    try:
+        older = python_for(case)
+    except ReferenceUnavailable as exc:
+        return {"case": case.name, "skipped": str(exc)}
+    reference = ["--reference-python", older] if older else []
     converted = work / f"{case.name}_polars.py"
     # the scripts read their files from data/ beside them: the scenario folder is the data
     subprocess.run([*PORTER, "convert", str(script), "-o", str(converted), "--data", str(case)],
@@ -95,13 +103,14 @@ def bench(case: Path, rows: int, runs: int, work: Path) -> dict[str, object]:
     verdict_file = work / "verdict.json"
     done = subprocess.run([*PORTER, "verify", str(script), str(converted), "--data", str(folder),
                            "--timing-runs", str(max(runs - 1, 0)), "--json", str(verdict_file),
-                           "--timeout", "1200"], capture_output=True, text=True, cwd=ROOT)
+                           "--timeout", "1200", *reference], capture_output=True, text=True, cwd=ROOT)
     if not verdict_file.exists():
         return {"case": case.name, "error": (done.stderr or done.stdout).strip()[-300:]}
     verdict = json.loads(verdict_file.read_text(encoding="utf-8"))
     text = converted.read_text(encoding="utf-8")
+    label = f"{case.name} (original on {', '.join(declared_requirements(case))})" if older else case.name
     return {
-        "case": case.name, "rows": max(sizes.values()), "verdict": verdict["verdict"],
+        "case": label, "rows": max(sizes.values()), "verdict": verdict["verdict"],
         "pandas_s": verdict["original"]["wall_s"], "polars_s": verdict["converted"]["wall_s"],
         "pandas_mib": verdict["original"]["peak_mib"], "polars_mib": verdict["converted"]["peak_mib"],
         "runs": verdict["converted"].get("runs", 1),
@@ -128,6 +137,9 @@ def render(results: list[dict[str, object]], rows: int, runs: int) -> str:
              "|---|---|---|---|---|---|---|---|---|---|---|---|"]
     times, memories = [], []
     for r in results:
+        if "skipped" in r:
+            lines.append(f"| {r['case']} | | skipped: {str(r['skipped'])[:80]} | | | | | | | | | |")
+            continue
         if "error" in r:
             lines.append(f"| {r['case']} | | error: {str(r['error']).splitlines()[-1][:80]} "
                          "| | | | | | | | | |")

@@ -9,6 +9,7 @@ import tempfile
 
 from porter.api import convert_file
 from porter.model import FileResult
+from porter.verify.declared import ReferenceUnavailable, python_for
 from support import assert_same_table, outputs, read_table, run_script
 
 CORPUS = Path(__file__).resolve().parent.parent / "corpus"
@@ -27,9 +28,21 @@ class CaseRun:
     polars_stderr: str = ""
 
 
+def reference_python(name: str) -> str | None:
+    """The Python the original of case `name` runs under: None for porter's own, else one with
+    the pandas its corpus/<name>/reference.txt declares (porter.verify.declared); under pytest
+    a case whose declared pandas cannot be had here is skipped with the reason."""
+    try:
+        return python_for(CORPUS / name)
+    except ReferenceUnavailable as exc:
+        import pytest
+        pytest.skip(str(exc))
+
+
 def run_case(name: str, tmp: Path) -> CaseRun:
     source = CORPUS / name
     result = convert_file(source / f"{name}.py")
+    pythons = {"pandas": reference_python(name), "polars": None}
     sides = {}
     for side in ("pandas", "polars"):
         work = tmp / side
@@ -37,7 +50,7 @@ def run_case(name: str, tmp: Path) -> CaseRun:
         if side == "polars":
             (work / f"{name}.py").write_text(result.converted_text, encoding="utf-8")
         before = {p.relative_to(work) for p in work.rglob("*")}
-        proc = run_script(work / f"{name}.py", work)
+        proc = run_script(work / f"{name}.py", work, python=pythons[side])
         if proc.returncode != 0:
             raise AssertionError(f"{side} side of {name} failed:\n{proc.stderr[-3000:]}")
         sides[side] = (outputs(before, work), proc.stderr)
@@ -77,10 +90,13 @@ def compare_case(run: CaseRun, ties: dict[str, str] | None = None) -> None:
 
 if __name__ == "__main__":
     import sys
+    import pytest
     for case in sys.argv[1:] or cases():
         with tempfile.TemporaryDirectory() as tmp:
             try:
                 compare_case(run_case(case, Path(tmp)))
                 print(f"{case}: same")
+            except pytest.skip.Exception as exc:
+                print(f"{case}: skipped ({exc})")
             except AssertionError as exc:
                 print(f"{case}: DIFFERENT\n   {str(exc)[:1500]}")

@@ -225,10 +225,11 @@ def read_table(path: Path) -> pd.DataFrame | None:
     return None
 
 
-def run_script(script: Path, workdir: Path, timeout: float = 120) -> subprocess.CompletedProcess[str]:
+def run_script(script: Path, workdir: Path, timeout: float = 120,
+               python: str | None = None) -> subprocess.CompletedProcess[str]:
     import subprocess
     import sys
-    return subprocess.run([sys.executable, script.name], cwd=workdir, capture_output=True,
+    return subprocess.run([python or sys.executable, script.name], cwd=workdir, capture_output=True,
                           text=True, timeout=timeout)
 
 

@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+from pathlib import Path
+
 import inspect
 
 import pytest
@@ -32,9 +34,14 @@ def test_every_ported_entry_has_cases_to_measure_it():
     # into series.map's and series.apply's, whose cases measure them (mappings/elementwise.toml)
     # an API pandas 3 removed (applymap, append) cannot run there: `measured_as` names the
     # key whose cases measure what it did
+    # key whose cases measure what it did; one with no spelling today (lookup) names, in
+    # `measured_by`, the test file that checks it against the older pandas itself
+    root = Path(__file__).resolve().parent.parent
     missing = sorted(e.key for e in TABLE if e.status == "ported" and not e.extra.get("cases")
                      and not e.key.startswith("element.")
-                     and TABLE.get(str(e.extra.get("measured_as", ""))) is None)
+                     and TABLE.get(str(e.extra.get("measured_as", ""))) is None
+                     and not (e.extra.get("measured_by")
+                              and (root / str(e.extra["measured_by"])).is_file()))
     assert not missing, f"ported entries without cases (tests/trial_cases.py): {missing}"
 
 

@@ -121,11 +121,12 @@ def test_grouper_old_aliases(old: str, new: str) -> None:
 
 
 def test_an_old_alias_porter_does_not_bin_stays_a_todo_naming_the_new_one() -> None:
-    # BM (business month end) is BME in pandas 3.1; porter bins no business days
-    text = convert(textwrap.dedent(FERRY + 'result = df.resample("BM", on="ts")["cars"].sum()\n')
+    # SM (semi-month end) is SME in pandas 3.1; porter bins no semi-months (BM, a business
+    # month end, is binned as BME: tests/test_business_month_end_bins.py)
+    text = convert(textwrap.dedent(FERRY + 'result = df.resample("SM", on="ts")["cars"].sum()\n')
                    ).converted_text
     assert "TODO(porter): frame.resample" in text
-    assert "'BME'" in text
+    assert "'SME'" in text
 
 
 # -- date_range, dt.floor ----------------------------------------------------------------------
@@ -153,8 +154,10 @@ def test_floor_old_aliases(old: str, new: str) -> None:
      "series.dt.ceil"),
     ('df["near"] = df["ts"].dt.round(freq="15T"); result = df',
      'df["near"] = df["ts"].dt.round(freq="15min"); result = df', "series.dt.round"),
+    ('result = df.set_index("ts").resample("SM")["cars"].sum()',
+     'result = df.set_index("ts").resample("SME")["cars"].sum()', "indexed.resample"),
     ('result = df.set_index("ts").resample("BM")["cars"].sum()',
-     'result = df.set_index("ts").resample("BME")["cars"].sum()', "indexed.resample"),
+     'result = df.set_index("ts").resample("BME")["cars"].sum()', None),
     ('result = df.set_index("ts").resample("2A")["cars"].sum()',
      'result = df.set_index("ts").resample("2YE")["cars"].sum()', "indexed.resample"),
     ('result = df.set_index("ts")["cars"].resample("2H").sum()',
@@ -169,7 +172,8 @@ def test_calls_kept_on_pandas_get_the_new_name(old: str, new: str, key: str | No
         source = textwrap.dedent(frame + old)
         text = convert(source).converted_text
         assert_same_value(run(textwrap.dedent(frame + new))["result"], run(text)["result"])
-    assert '"BM"' not in text and '"M"' not in text and '"H"' not in text and '"15T"' not in text
+    assert '"BM"' not in text and '"M"' not in text and '"H"' not in text and '"15T"' not in text \
+        and '"SM"' not in text
 
 
 def test_a_kept_resample_of_an_alias_periods_still_read_is_not_renamed() -> None:

@@ -118,6 +118,8 @@ FRAME_REMOVED = frozenset(('append', 'applymap', 'iteritems', 'as_matrix', 'get_
 # Series methods pandas removed (rules/legacy.py), read when no method has the name
 SERIES_REMOVED = frozenset(('valid', 'order', 'get_value', 'set_value', 'as_matrix', 'pad',
                             'backfill', 'iteritems'))
+# GroupBy methods pandas 2 removed (rules/legacy.py), read when no column has the name
+GROUPBY_REMOVED = frozenset(('pad', 'backfill'))
 
 
 def _generate() -> str:  # pragma: no cover - run by hand when pandas changes

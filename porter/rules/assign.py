@@ -554,7 +554,8 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: a comparison that met a missing value is stored as False, like pandas; one value
     into several columns (df[["a", "b"]] = 0); a Series pandas computed row for row (a map or
     apply under a TODO) put back by position, lists of text it returns kept lists; np.nan is a
-    Float64 column of missing values, as pandas' float64.
+    Float64 column of missing values, as pandas' float64. A frame of the same rows into several
+    columns (df[["a", "b"]] = df[["a", "b"]].applymap(f)): its columns by position.
     A Series of another table labelled by the same one key (a groupby's result on that key) is
     aligned on the labels as pandas aligns it: a left join on the key column.
     Caveats: a Series from another frame aligned on other labels is a TODO. A function
@@ -594,6 +595,10 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
         code, dtype = value_expr(value, frame, ctx)
         return set_nullable_ints(with_columns(frame, [(k, code, dtype) for k in key.const]),
                                  dict.fromkeys(key.const, NOT_NULLABLE))
+    if isinstance(key, Opaque) and isinstance(key.const, list) and key.const \
+            and all(isinstance(k, str) for k in key.const) and isinstance(value, Frame) \
+            and value.rows == frame.rows:
+        return _frame_into_columns(frame, list(key.const), value)
     if isinstance(key, Opaque) and not key.is_const and key.pytype == "str":
         code, _ = value_expr(value, frame, ctx)
         new = frame.code.method("with_columns", code.method("alias", key.code))
@@ -603,6 +608,39 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
         return with_column_updates(frame, new, {}) if frame.columns is None else \
             derive(frame, new, same_rows=True, columns=None)
     raise Unsupported("assigning to several columns or to a computed key")
+
+
+def _frame_into_columns(frame: Frame, keys: list[str], value: Frame) -> Frame:
+    """df[["a", "b"]] = other, `other` a frame of the same rows (df[["a", "b"]].applymap(f)):
+    pandas writes other's columns by position into the named ones (its first column into
+    "a", ...; the rows aligned on labels, which are the same rows here), the existing ones in
+    their places, new ones at the end, as with_columns writes them. The two plans are put side
+    by side (a horizontal concat of the same rows; Polars reads their shared input once),
+    other's columns under names of their own, then written into the named ones."""
+    if value.columns is None:
+        raise Unsupported("assigning a frame to several columns: its columns are not known")
+    if frame.index or value.index:
+        raise Unsupported("assigning a frame to several columns of a frame with an index of "
+                          "its own")
+    if len(value.columns) != len(keys) or len(set(keys)) != len(keys):
+        # pandas raises "Columns must be same length as key"
+        raise Unsupported("assigning a frame of another number of columns than the keys")
+    held = [f"_porter_set_{i}" for i in range(len(keys))]
+    side = value.code.method("select", *[emit.col(old).method("alias", tmp)
+                                         for old, tmp in zip(value.columns, held)])
+    code = emit.pl("concat", [frame.code, side], how="horizontal") \
+        .method("with_columns", *[emit.col(tmp).method("alias", new)
+                                  for tmp, new in zip(held, keys)]) \
+        .method("drop", *held)
+    result = with_column_updates(frame, code, {new: value.dtype(old)
+                                               for old, new in zip(value.columns, keys)})
+    result = set_nullable_ints(result, {new: nullable_mark(value, old) or NOT_NULLABLE
+                                        for old, new in zip(value.columns, keys)})
+    floats = dict(value.float_ints)
+    for old, new in zip(value.columns, keys):
+        if old in floats:
+            result = mark_float_ints(result, [new], floats[old])
+    return result
 
 
 ALIGNED = "_porter_aligned"

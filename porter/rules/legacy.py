@@ -93,7 +93,7 @@ def modern_period(freq: object) -> str | None:
 from porter.emit import code as emit  # noqa: E402
 from porter.rules import registry, rule  # noqa: E402
 from porter.translate.context import PandasCall, RuleContext, Unsupported  # noqa: E402
-from porter.translate.values import Column, Frame, Opaque, Value  # noqa: E402
+from porter.translate.values import Column, Frame, Grouped, Opaque, Value  # noqa: E402
 
 
 def _const(value: object) -> Opaque:
@@ -338,6 +338,59 @@ def get_value(call: PandasCall, ctx: RuleContext) -> Value:
     return _as_today("series.iloc", PandasCall(column, "iloc", (_const(label),), {}, call.node), ctx)
 
 
+@rule("frame.lookup")
+def lookup(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.lookup(df.index, df["which"]) -> each row's value in the column its label names:
+    pl.when(pl.col("which") == "a").then(pl.col("a")).when(...)... over the number columns.
+
+    DataFrame.lookup (from memory: deprecated in pandas 1.2, removed in 2.0) read one value per
+    (row label, column label) pair into an array, converted from objects (numbers: int64 when
+    every value found is an integer, else float64). Given the frame's own index, each pair is
+    the row itself. A label that names no column raised KeyError in pandas, so the script never
+    ran on such data; here it gives a missing value.
+    Caveats: only the number columns are candidates: a label naming a text or date column
+    (pandas gave that value, the array of objects) gives a missing value (0.95 when the frame
+    has such columns); int and float candidates give Float64 even where the labels only name
+    int columns (pandas: int64; 0.9). Row labels other than the frame's own index of 0..n-1
+    are a TODO.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "row_labels", "col_labels", positional=2)
+    rows, cols = call.arg("row_labels", 0), call.arg("col_labels", 1)
+    if not (isinstance(rows, Column) and rows.index_values and rows.frame.rows == frame.rows
+            and not frame.index):
+        raise Unsupported("lookup with row labels other than the frame's own index of row "
+                          "numbers")
+    if not (isinstance(cols, Column) and cols.frame.rows == frame.rows and not cols.element):
+        raise Unsupported("lookup with column labels other than a column of the same frame")
+    if frame.columns is None or any(frame.dtype(c) is None for c in frame.columns):
+        raise Unsupported("lookup on a frame whose column types porter does not know")
+    candidates = [c for c in frame.columns if frame.dtype(c) in ("int", "float")]
+    if not candidates:
+        raise Unsupported("lookup on a frame without number columns")
+    if len(candidates) < len(frame.columns) - (1 if cols.name in frame.columns else 0):
+        ctx.lower("lookup reads the number columns: a label naming a text or date column gives "
+                  "a missing value here (pandas: that value, in an array of objects)", to=0.95)
+    kinds = {frame.dtype(c) for c in candidates}
+    if kinds == {"int", "float"}:
+        ctx.lower("lookup over int and float columns gives Float64 (pandas: int64 where the "
+                  "labels only name int columns)", to=0.9)
+    which = ctx.expr(cols, frame)
+    chain = emit.pl("when", emit.binop(which, "==", emit.pl("lit", candidates[0]))) \
+        .method("then", emit.col(candidates[0]))
+    for name in candidates[1:]:
+        chain = chain.method("when", emit.binop(which, "==", emit.pl("lit", name))) \
+            .method("then", emit.col(name))
+    dtype = "float" if "float" in kinds else "int"
+    if kinds == {"int", "float"}:
+        chain = chain.method("cast", emit.atom("pl.Float64"))
+    return Column(chain, frame=frame, name=None, dtype=dtype,
+                  refs=frozenset({*candidates, *cols.refs}),
+                  versions=tuple(sorted({*((c, frame.version(c)) for c in candidates),
+                                         *cols.versions})))
+
+
 @rule("series.valid")
 def valid(call: PandasCall, ctx: RuleContext) -> Value:
     """s.valid() -> as s.dropna() (the column's rows holding a value).
@@ -477,14 +530,17 @@ def top_value_counts(call: PandasCall, ctx: RuleContext) -> Value:
                      PandasCall(column, "value_counts", (), kwargs, call.node), ctx)
 
 
-@rule("series.pad", "series.backfill", "frame.pad", "frame.backfill")
+@rule("series.pad", "series.backfill", "frame.pad", "frame.backfill", "groupby.pad",
+      "groupby.backfill")
 def pad_backfill(call: PandasCall, ctx: RuleContext) -> Value:
-    """s.pad() / s.backfill() (and a frame's) -> as s.ffill() / s.bfill().
+    """s.pad() / s.backfill() (and a frame's, a groupby's) -> as s.ffill() / s.bfill().
 
-    pad and backfill (deprecated in pandas 2.0, removed in 3.0; from memory) were ffill and
-    bfill under their older names, with the same options.
+    pad and backfill (deprecated in pandas 2.0, removed in 3.0; a groupby's deprecated in 1.4
+    and removed in 2.0; from memory) were ffill and bfill under their older names, with the
+    same options.
     """
-    owner = "frame" if isinstance(call.receiver, Frame) else "series"
+    owner = "frame" if isinstance(call.receiver, Frame) else \
+        "groupby" if isinstance(call.receiver, Grouped) else "series"
     today = "ffill" if call.name == "pad" else "bfill"
     return _as_today(f"{owner}.{today}",
                      PandasCall(call.receiver, today, call.args, call.kwargs, call.node), ctx)

@@ -80,6 +80,7 @@ class Bins:
     caveat: str | None = None  # where the rewrite may differ (lowers the confidence)
     renamed: str | None = None  # the script's alias, which pandas 3 spells `freq` ("M": "ME")
     from_first: bool = False  # bins counted from the first timestamp's midnight (several days)
+    business: bool = False  # labels are each month's last weekday (BME; "BM" in older pandas)
 
     def labels(self, time: Code) -> Code:
         return self.label(time)
@@ -93,7 +94,15 @@ class Bins:
             .method("drop_nulls")
         if self.end_anchored:
             code = code.attr("dt").method("month_end")
+        if self.business:
+            code = _last_weekday(code)
         return code.method("alias", time)
+
+
+def _last_weekday(month_end: Code) -> Code:
+    """The last weekday (Monday to Friday) on or before a month's last day: pandas'
+    BusinessMonthEnd knows no holidays."""
+    return month_end.attr("dt").method("add_business_days", 0, roll="backward")
 
 
 def bins_of(freq: object) -> Bins:
@@ -144,6 +153,16 @@ def bins_of(freq: object) -> Bins:
             days = emit.binop(emit.binop(target, "-", t.attr("dt").method("weekday")), "%", 7)
             return emit.binop(t.attr("dt").method("truncate", "1d"), "+", emit.pl("duration", days=days))
         return Bins(freq, "right", week_end, "1w")
+    if freq == "BME":
+        def business_month_end(t: Code) -> Code:
+            # the month's last weekday that is on or after the row's day (the right edge covers
+            # that whole day in pandas): this month's, or next month's for a day after it
+            day = t.attr("dt").method("truncate", "1d")
+            this = _last_weekday(day.attr("dt").method("month_end"))
+            following = _last_weekday(day.attr("dt").method("month_start").attr("dt")
+                                      .method("offset_by", "1mo").attr("dt").method("month_end"))
+            return emit.when(emit.binop(day, ">", this), following, this)
+        return Bins(freq, "right", business_month_end, "1mo", end_anchored=True, business=True)
     if freq in _ANCHORED:
         period, months, end = _ANCHORED[freq]
 
@@ -156,7 +175,7 @@ def bins_of(freq: object) -> Bins:
             return start.attr("dt").method("month_end")  # the period's last day, at midnight
         return Bins(freq, "right" if end else "left", anchored, f"{months}mo", end_anchored=end)
     raise Unsupported(f"rule {freq!r}: porter ports D, h, min, s (and multiples), "
-                      "W / W-MON … W-SUN, MS, ME, QS, QE, YS, YE (business days, semi-months, "
+                      "W / W-MON … W-SUN, MS, ME, BME, QS, QE, YS, YE (business days, semi-months, "
                       "multiples of weeks or months and lower-case spellings are not ported)")
 
 
@@ -178,7 +197,8 @@ def _check_options(call: PandasCall, bins: Bins) -> None:
 def resample(call: PandasCall, ctx: RuleContext) -> Value:
     """df.resample(rule, on="ts") -> time bins waiting for an aggregation (`resample.sum` ...).
 
-    Handles: the rules D, h, min, s and their multiples, W / W-MON … W-SUN, MS, ME, QS, QE, YS, YE
+    Handles: the rules D, h, min, s and their multiples, W / W-MON … W-SUN, MS, ME, BME, QS, QE,
+    YS, YE
     with pandas' closed= and label= (given or not) and origin="start_day"; the old names
     pandas 3 rejects (M, Q, Y / A, AS, H, T, S) as the rules they name (legacy.py).
     Caveats: resampling the index (no on=), other closed / label / origin, offset=,

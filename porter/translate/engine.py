@@ -801,9 +801,13 @@ class _Walker:
         key, series = (e.value.value for e in stmt.target.elements)  # type: ignore[attr-defined]
         assigned = _Assigned()
         stmt.body.visit(assigned)
-        if {key, series} & assigned.names or assigned.changes_objects \
+        # a loop that changes frames is handed to pandas as written; one that fills a Python
+        # value of the script's (gaps[name] = ..., a dict made before the loop) is not
+        if {key, series} & assigned.names or assigned.inplace \
+                or any(n is None or n in (key, series) or not _plain_python(env.get(n))
+                       for n in assigned.changed) \
                 or any(isinstance(env.get(n), (Frame, Column)) for n in assigned.names):
-            return None  # (a loop that changes frames is handed to pandas as written)
+            return None
         return frame, key, series
 
     def frames_changed_by_a_loop(self, stmt: cst.For, env: dict[str, Value]) -> tuple[list[str], SiteDraft | None]:
@@ -3371,18 +3375,27 @@ class _Assigned(cst.CSTVisitor):
     def __init__(self) -> None:
         self.names: set[str] = set()
         self.changes_objects = False  # x[...] = / x.a = / a call with inplace=True
+        self.inplace = False  # a call with inplace=True
+        # the names whose object x[...] = / x.a = changes (None: not a plain name)
+        self.changed: set[str | None] = set()
+
+    def _changes(self, target: cst.BaseExpression) -> None:
+        if isinstance(target, (cst.Subscript, cst.Attribute)):
+            self.changes_objects = True
+            self.changed.add(target.value.value if isinstance(target.value, cst.Name) else None)
 
     def visit_AssignTarget(self, node: cst.AssignTarget) -> None:
         self.names.update(_target_names(node.target))
-        self.changes_objects |= isinstance(node.target, (cst.Subscript, cst.Attribute))
+        self._changes(node.target)
 
     def visit_AugAssign(self, node: cst.AugAssign) -> None:
         self.names.update(_target_names(node.target))
-        self.changes_objects |= isinstance(node.target, (cst.Subscript, cst.Attribute))
+        self._changes(node.target)
 
     def visit_Arg(self, node: cst.Arg) -> None:
         if node.keyword is not None and node.keyword.value == "inplace":
             self.changes_objects = True
+            self.inplace = True
 
     def visit_AnnAssign(self, node: cst.AnnAssign) -> None:
         self.names.update(_target_names(node.target))
@@ -3400,6 +3413,13 @@ def _target_names(target: cst.BaseExpression) -> list[str]:
     if isinstance(target, (cst.Tuple, cst.List)):
         return [n for e in target.elements for n in _target_names(e.value)]
     return []
+
+
+def _plain_python(value: Value | None) -> bool:
+    """A Python value the script made itself (a dict, a list, a number), no pandas in it."""
+    return isinstance(value, Opaque) and (
+        value.is_const and isinstance(value.const, (dict, list, set))
+        or value.pytype in ("dict", "list", "set"))
 
 
 def _iterates_names(value: Value) -> bool:

@@ -473,7 +473,10 @@ class Evaluator:
             if name in pandas_names.GROUPBY and (
                     receiver.selection is not None and receiver.single
                     or name not in _SERIES_GROUPBY_ONLY
-                    or name not in (receiver.frame.columns or ())):
+                    or name not in (receiver.frame.columns or ())) \
+                    or name in pandas_names.GROUPBY_REMOVED \
+                    and name not in (receiver.frame.columns or ()):
+                # (pad / backfill: the names pandas 2 removed, called by an old script)
                 return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
             return self.dispatch("groupby.getitem", PandasCall(
                 receiver, "getitem", (Opaque(emit.lit(name), const=name),), node=node), node)

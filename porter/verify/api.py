@@ -154,12 +154,15 @@ def _script_place(original: Path, data: Path) -> str:
         return original.name
 
 
-ROW_LOOPS = {"iterrows", "itertuples"}
+# loops over a frame's rows, and over its columns (items, iteritems in older pandas), which
+# the converted script computes as columns or as a loop over the column names
+ROW_LOOPS = {"iterrows", "itertuples", "items", "iteritems"}
 
 
 def _row_loop_names(text: str) -> frozenset[str]:
-    """The names a `for` over a frame's rows binds in the script (`for _, row in
-    df.iterrows()`): the row left behind by the last turn is not a result."""
+    """The names a `for` over a frame's rows or columns binds in the script (`for _, row in
+    df.iterrows()`, `for name, values in df.items()`): the row or column left behind by the
+    last turn is not a result."""
     try:
         tree = ast.parse(text)
     except SyntaxError:
@@ -196,8 +199,8 @@ def _judge(before: SideOutputs, after: SideOutputs, options: VerifyOptions,
                          "not compared")
             continue
         if name not in after.variables and name in row_names:
-            notes.append(f"{name}: the last row of a loop over rows, which the converted script "
-                         "computes as columns; not compared")
+            notes.append(f"{name}: the last row (or column) of a loop over rows (or columns), "
+                         "which the converted script computes as columns; not compared")
             continue
         if name not in before.variables:
             notes.append(f"{name}: only the converted script has it (a name porter wrote); "

@@ -169,7 +169,14 @@ def _load_frames(dump: Path, result: SideOutputs) -> None:
     try:
         for path in sorted(dump.glob("*.pickle")):
             with open(path, "rb") as handle:
-                result.variables[path.stem] = pickle.load(handle)  # noqa: S301 - our child wrote it
+                try:
+                    result.variables[path.stem] = pickle.load(handle)  # noqa: S301 - our child wrote it
+                except (ModuleNotFoundError, AttributeError, ImportError):
+                    # a frame pickled by an older pandas (--reference-python: pandas 1.5's
+                    # Int64Index lived in a module pandas 2 removed): pandas' own reader maps
+                    # its old classes to today's
+                    import pandas as pd
+                    result.variables[path.stem] = pd.read_pickle(path)  # noqa: S301
         expressions = dump / "expressions.txt"
         if expressions.exists():
             result.expressions = [n for n in expressions.read_text().splitlines() if n]
