@@ -217,8 +217,9 @@ def _element_slice(value: Column, lower: int | None, upper: int | None,
 
 def _checked(value: Value, ctx: RuleContext) -> Value:
     if any(site.status == "todo" for site in value.sites):
-        raise Unsupported("part of the function has no expression form: "
-                          + "; ".join(s.message for s in value.sites if s.status == "todo"))
+        # (each reason once: the same hand-over met at several places of the body)
+        raise Unsupported("part of the function has no expression form: " + "; ".join(
+            dict.fromkeys(s.message for s in value.sites if s.status == "todo")))
     # the lambda's own sites are folded into this one: keep their lowered confidences
     for site in value.sites:
         if site.confidence < ctx.confidence:

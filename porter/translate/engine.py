@@ -1817,7 +1817,7 @@ class _Walker:
         names = _names_read(self.services.code_for(expr))
         frames = [n for n in names if isinstance(env.get(n), Frame)]
         if not frames:
-            return None
+            return self._labels_where_the_chain_starts(expr, env, keep_index)
         # a statement reading several frames (left.merge(right, left_on=k, right_index=True)
         # labels its rows with the left's): each frame in turn, kept where the result holds
         # that frame's labels as its index
@@ -1839,6 +1839,42 @@ class _Walker:
                 continue
             if keep_index and not (isinstance(result, Frame) and result.index == ("index",)):
                 continue
+            return result
+        return None
+
+    def _labels_where_the_chain_starts(self, expr: cst.BaseExpression, env: dict[str, Value],
+                                       keep_index: bool) -> Value | None:
+        """labels_as_column of a statement that makes its frame and reorders it in one chain
+        (`pd.read_csv(...).sort_values("v")`): the frame the chain starts from (the innermost
+        receiver that is a frame porter tracks with its labels still 0..n-1) is given its row
+        numbers as a column there."""
+        receivers: list[cst.BaseExpression] = []
+        node: cst.BaseExpression = expr
+        while True:
+            if isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute):
+                node = node.func.value
+            elif isinstance(node, (cst.Attribute, cst.Subscript)):
+                node = node.value
+            else:
+                break
+            receivers.append(node)
+        evaluator = Evaluator(env, self.services)
+        for receiver in reversed(receivers):  # the innermost first: where the frame is made
+            if not isinstance(receiver, cst.Call):
+                continue
+            frame = evaluator.eval(receiver)
+            if not isinstance(frame, Frame) or not frame.labels_intact or frame.index \
+                    or frame.columns is None or "index" in frame.columns \
+                    or frame.nullable_ints is None and self.services.nullable_ints_possible:
+                continue
+            stand_in = "_porter_chain_start"
+            rewritten = expr.visit(_Replaced(receiver, cst.Name(stand_in)))
+            assert isinstance(rewritten, cst.BaseExpression)
+            result = Evaluator({**env, stand_in: with_row_labels(frame)}, self.services).eval(rewritten)
+            if stand_in in result.code.text or any(site.status == "todo" for site in result.sites):
+                return None
+            if keep_index and not (isinstance(result, Frame) and result.index == ("index",)):
+                return None
             return result
         return None
 
@@ -1870,8 +1906,12 @@ class _Walker:
         frames += [o for o in dict.fromkeys(env[n].frame.code.text for n in read  # type: ignore[union-attr]
                                              if isinstance(env[n], Column) and env[n].binding is not None)
                    if o not in frames and isinstance(env.get(o), Frame)]
-        if not frames or any(not isinstance(env[n], (Frame, PandasValue, Module, Opaque, Scalar))
-                             and not _expression_of(env[n], frames) for n in read):
+        if not frames and any(not isinstance(env[n], (Module, Opaque, Scalar)) for n in read):
+            return None
+        # (no frame read at all: the statement makes its frame and reorders it in one chain,
+        # pd.read_csv(...).sort_values("v"), which pandas runs as written)
+        if frames and any(not isinstance(env[n], (Frame, PandasValue, Module, Opaque, Scalar))
+                          and not _expression_of(env[n], frames) for n in read):
             return None
         if any(env[n].index for n in frames):  # type: ignore[union-attr]
             return None
@@ -3149,6 +3189,17 @@ def _try_assignments(stmt: cst.Try) -> dict[str, list[cst.BaseExpression]]:
 
     stmt.visit(Assigns())
     return found
+
+
+class _Replaced(cst.CSTTransformer):
+    """The tree with one node (found by identity) replaced by another."""
+
+    def __init__(self, target: cst.CSTNode, by: cst.BaseExpression) -> None:
+        super().__init__()
+        self.target, self.by = target, by
+
+    def on_leave(self, original: cst.CSTNode, updated: cst.CSTNode) -> cst.CSTNode:  # type: ignore[override]
+        return self.by if original is self.target else updated
 
 
 def _names_read(text: str) -> list[str]:
