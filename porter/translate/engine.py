@@ -274,6 +274,7 @@ class _Walker:
         self.header_sites: list[SiteDraft] = []  # sites in the header of the compound statement at hand
         self.statement_key = 0  # the simple statement being rewritten
         self.current_small: cst.CSTNode = cst.Pass()
+        self.shared_line = False  # the statement shares its line with others (`a = x; a["c"] = y`)
         self.loop_depth = 0
         self.sink_run: int | None = None  # the execution a run of consecutive writes shares
         self.has_next = False  # the statement at hand has another after it in its block
@@ -1042,6 +1043,7 @@ class _Walker:
         self.services.statement_lines = self.services.position(line)
         run, self.sink_run = self.sink_run, None
         smalls = [part for small in line.body for part in _one_target_each(small)]
+        self.shared_line = len(smalls) > 1
         for small in smalls:
             text, new_sites = self.small(small, env, indent)
             texts.append(text)
@@ -1309,7 +1311,10 @@ class _Walker:
         """Whether the script changes one of these names' object in place after this statement
         (or anywhere, inside a loop or a function)."""
         here = self.services.statement_lines[1]
-        return any(line > here or self.loop_depth or self.function is not None
+        # (a change on this statement's own line, `keyed = df.set_index("k"); keyed["c"] = ...`,
+        # may come after it: counted too)
+        return any(line > here or line == here and self.shared_line or self.loop_depth
+                   or self.function is not None
                    for name in names for line in self.services.changed_in_place.get(name, ()))
 
     def hand_over_changed(self, stmt: cst.BaseSmallStatement, env: dict[str, Value]) -> tuple[list[str], list[SiteDraft]]:
