@@ -13,6 +13,7 @@ import math
 
 import libcst as cst
 
+from porter.analysis.consumers import MODEL_ARRAY_METHODS
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
@@ -128,12 +129,15 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
             return emit.call("pl.Series", Code(
                 f"[None if x != x else x for x in {value.code.text}]")), None
         return int64_lit(value.code) if value.pytype == "int" else emit.pl("lit", value.code), None
-    if isinstance(value, Opaque) and any(s.status != "converted" for s in value.sites):
+    per_row = _per_row(value.code.text) if isinstance(value, Opaque) else None
+    if isinstance(value, Opaque) and any(s.status != "converted" for s in value.sites) \
+            and not (per_row == "numpy" and not _SERIES_KEEPING.intersection(
+                _names_read(value.code.text))):
         # the script's own function (or another library) given data from a frame: it may well
-        # return a Series, which pandas aligns on the index and pl.lit cannot hold
+        # return a Series, which pandas aligns on the index and pl.lit cannot hold (a numpy
+        # array, a model's predictions, is placed by position)
         raise Unsupported(f"`{_short(value.code.text)}` is computed from frame data by code porter "
                           "hands to pandas, and may be a Series: the statement stays pandas")
-    per_row = _per_row(value.code.text) if isinstance(value, Opaque) else None
     if isinstance(value, Opaque) and (value.pytype in ("list", "tuple") or per_row):
         # a list is placed by position, one value per row (pandas raises on another length,
         # and so does Polars); Polars infers the type from the Python values
@@ -500,6 +504,21 @@ _ARRAY_MAKERS = {"arange", "array", "asarray", "linspace", "repeat", "tile", "ze
                  "full", "empty", "concatenate", "cumsum", "random", "where", "select"}
 
 
+# numpy functions that give a Series back when given one (np.cumsum(s) is s.cumsum(), with its
+# labels), where the others give an array
+_SERIES_KEEPING = frozenset({"cumsum", "repeat"})
+
+
+def _names_read(text: str) -> set[str]:
+    """The names and attribute names in a piece of code."""
+    try:
+        tree = ast.parse(text, mode="eval")
+    except SyntaxError:
+        return set()
+    return {n.id if isinstance(n, ast.Name) else n.attr for n in ast.walk(tree)
+            if isinstance(n, (ast.Name, ast.Attribute))}
+
+
 def _per_row(text: str) -> str | None:
     """Code that makes one value per row, not a single value (pl.lit would give every row the
     whole list): "numpy" for a numpy array (`np.arange(n) - 5`), "list" for Python values (`[a, b]
@@ -518,8 +537,19 @@ def _per_row(text: str) -> str | None:
         return isinstance(func, ast.Name) and func.id in ("np", "numpy") \
             and bool(set(names) & _ARRAY_MAKERS)
 
+    def model_array(node: ast.AST) -> bool:
+        # a model's predictions or a transform's rows (km.fit_predict(X), scaler.fit_transform(
+        # ...)), and a column of a 2-D array (pcs[:, 0]): numpy arrays, one value per row
+        if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute):
+            return node.func.attr in MODEL_ARRAY_METHODS
+        return isinstance(node, ast.Subscript) and isinstance(node.slice, ast.Tuple) \
+            and len(node.slice.elts) == 2 and isinstance(node.slice.elts[0], ast.Slice) \
+            and node.slice.elts[0].lower is None and node.slice.elts[0].upper is None
+
     def many(node: ast.AST) -> bool:
         if isinstance(node, (ast.List, ast.Tuple, ast.ListComp, ast.GeneratorExp)):
+            return True
+        if model_array(node):
             return True
         if isinstance(node, ast.BinOp):
             return many(node.left) or many(node.right)
@@ -533,7 +563,7 @@ def _per_row(text: str) -> str | None:
         return None
     while isinstance(node, ast.BinOp):  # np.arange(n) - 5 is still the numpy array's
         node = node.left
-    return "numpy" if numpy_call(node) else "list"
+    return "numpy" if numpy_call(node) or model_array(node) else "list"
 
 
 # calls whose pandas result can hold Interval values (bins without labels)

@@ -17,7 +17,7 @@ from typing import Any
 import libcst as cst
 
 from porter.analysis import pandas_names
-from porter.analysis.consumers import library, plots
+from porter.analysis.consumers import MODEL_ARRAY_METHODS, library, plots
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.mapping import MappingTable
@@ -1317,10 +1317,17 @@ class Evaluator:
             return Opaque(Code(self.standalone(node), precedence(node)), node=node,
                           sites=tuple(rewriter.sites))
         text = self.source(new_node)  # type: ignore[arg-type]
-        if rewriter.pandas_inside:
+        if rewriter.pandas_inside and not _model_array(node):
             # built on a value handed over to pandas: a pandas object, never a plain scalar
             return PandasValue(Code(text, precedence(node)), sites=tuple(rewriter.sites))
         return Opaque(Code(text, precedence(node)), sites=tuple(rewriter.sites))
+
+
+def _model_array(node: cst.BaseExpression) -> bool:
+    """A model's predictions or a transform's rows (`scaler.fit_transform(df[cols])`,
+    `km.fit_predict(X)`): a numpy array whatever pandas values it was given."""
+    return isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute) \
+        and node.func.attr.value in MODEL_ARRAY_METHODS
 
 
 def _one_select(left: Value, right: Value, op: str) -> Scalar | None:
