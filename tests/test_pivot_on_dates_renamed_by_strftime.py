@@ -61,6 +61,7 @@ def test_date_columns_renamed_by_strftime(pivot: str, fmt: str, tmp_path: Path) 
 
 def test_the_corpus_pattern_melt_and_a_label(tmp_path: Path) -> None:
     # the pivot, its columns renamed, back to columns, melted, then the rows of one label
+    # (written out: a printed .loc[label] shows the rows as Polars prints a frame)
     _same('t = log.pivot_table(index="crew", columns="day", values="minutes", '
           'aggfunc="count", fill_value=0)\n'
           't.columns = t.columns.strftime("%a %d")\n'
@@ -68,8 +69,8 @@ def test_the_corpus_pattern_melt_and_a_label(tmp_path: Path) -> None:
           'long = t.melt(id_vars="crew", var_name="day", value_name="calls")\n'
           'long = long[long["calls"] > 0].sort_values(["crew", "day"])\n'
           'long = long.set_index("crew")\n'
-          'print(long.loc["Éliane"])\n'
-          'print(long.loc["Tomos"])\n'
+          'long.loc["Éliane"].to_csv("eliane.csv")\n'
+          'long.loc["Tomos"].to_csv("tomos.csv")\n'
           'long.reset_index().to_csv("long.csv", index=False)\n', tmp_path)
 
 
