@@ -240,7 +240,9 @@ def layout_chain(code: Code, indent: str, prefix: str, suffix: str = "") -> str:
     # continuation lines are relative: libcst adds the enclosing block's indentation
     base = [code.base]
     if len(indent) + 4 + len(code.base) > LINE_LENGTH:
-        split = _split_call(code.base, "", "")  # a long first call: one argument per line
+        # a long first call: one argument per line; a long operation in parentheses, one
+        # operand per line
+        split = _split_call(code.base, "", "") or _split_operation(code.base, "")
         if split is not None:
             base = split.splitlines()
     lines = [f"{prefix}(", *("    " + line for line in base)]
@@ -262,7 +264,7 @@ def _chain_lines(text: str, indent: str, prefix: str, suffix: str) -> str | None
     head, steps = parts
     base = [head]
     if len(indent) + 4 + len(head) > LINE_LENGTH:
-        split = _split_call(head, "", "")  # a long first call: one argument per line
+        split = _split_call(head, "", "") or _split_operation(head, "")  # as layout_chain
         if split is not None:
             base = split.splitlines()
     lines = [f"{prefix}(", *("    " + line for line in base)]

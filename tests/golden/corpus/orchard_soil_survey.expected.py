@@ -428,7 +428,10 @@ healthy = cores.filter(pl.col("health") >= 4)
 # TODO(porter): series.arith: the Series comes from another frame (or from before rows were filtered
 #   or reordered): pandas aligns it on the index, which has no expression form
 share = (
-    (healthy.drop_nulls("variety").group_by("variety").agg(pl.len().cast(pl.Int64).alias("size")).sort("variety").select(pl.col("variety"), pl.col("size").alias("0")).collect().to_pandas().set_index("variety")["0"].rename(None) / cores.drop_nulls("variety").group_by("variety").agg(pl.len().cast(pl.Int64).alias("size")).sort("variety").select(pl.col("variety"), pl.col("size").alias("0")).collect().to_pandas().set_index("variety")["0"].rename(None))
+    (
+        healthy.drop_nulls("variety").group_by("variety").agg(pl.len().cast(pl.Int64).alias("size")).sort("variety").select(pl.col("variety"), pl.col("size").alias("0")).collect().to_pandas().set_index("variety")["0"].rename(None)
+        / cores.drop_nulls("variety").group_by("variety").agg(pl.len().cast(pl.Int64).alias("size")).sort("variety").select(pl.col("variety"), pl.col("size").alias("0")).collect().to_pandas().set_index("variety")["0"].rename(None)
+    )
     .fillna(0)
     .round(3)
 )
