@@ -132,7 +132,7 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
     per_row = _per_row(value.code.text) if isinstance(value, Opaque) else None
     if isinstance(value, Opaque) and any(s.status != "converted" for s in value.sites) \
             and not (per_row == "numpy" and not _SERIES_KEEPING.intersection(
-                _names_read(value.code.text))):
+                _names_and_attributes(value.code.text))):
         # the script's own function (or another library) given data from a frame: it may well
         # return a Series, which pandas aligns on the index and pl.lit cannot hold (a numpy
         # array, a model's predictions, is placed by position)
@@ -509,7 +509,7 @@ _ARRAY_MAKERS = {"arange", "array", "asarray", "linspace", "repeat", "tile", "ze
 _SERIES_KEEPING = frozenset({"cumsum", "repeat"})
 
 
-def _names_read(text: str) -> set[str]:
+def _names_and_attributes(text: str) -> set[str]:
     """The names and attribute names in a piece of code."""
     try:
         tree = ast.parse(text, mode="eval")
