@@ -106,9 +106,14 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     services.label_free_loops = label_free_loops(module)
     services.name_lines = {name: [positions[n].start.line for n in nodes]
                            for name, nodes in _name_nodes(module).items()}
-    services.changed_in_place = {name: [position(n)[0] for n in nodes]
-                                 for name, nodes in changes_in_place(module).items()}
+    changes = changes_in_place(module)
+    services.changed_in_place = {name: [position(n)[0] for n in nodes] for name, nodes in changes.items()}
+    # where each change starts, to order it against statements sharing its line (`a = x; a["c"] = y`)
+    services.changed_at = {name: [(p.start.line, p.start.column) for n in nodes
+                                  if (p := positions.get(n)) is not None]
+                           for name, nodes in changes.items()}
     services.position = position
+    services.start = lambda node: (p.start.line, p.start.column) if (p := positions.get(node)) else None
     services.glued = glued
     services.mutated = mutated_names(module)
     services.inside_from_pandas = inside_from_pandas
@@ -130,6 +135,8 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     # a call of the script's own function that changes its argument in place changes it too
     for name, _, call in _changed_by_functions(module, services.functions):
         services.changed_in_place.setdefault(name, []).append(position(call)[0])
+        if (start := services.start(call)) is not None:
+            services.changed_at.setdefault(name, []).append(start)
 
     # Which parameters of the script's own functions take frames is learnt from the calls:
     # run the pass until that stops changing (each round can learn one more link of a chain
@@ -275,6 +282,7 @@ class _Walker:
         self.statement_key = 0  # the simple statement being rewritten
         self.current_small: cst.CSTNode = cst.Pass()
         self.shared_line = False  # the statement shares its line with others (`a = x; a["c"] = y`)
+        self.small_start: tuple[int, int] | None = None  # where it starts: line, column
         self.loop_depth = 0
         self.sink_run: int | None = None  # the execution a run of consecutive writes shares
         self.has_next = False  # the statement at hand has another after it in its block
@@ -1042,9 +1050,9 @@ class _Walker:
         self.statement_key = id(line)
         self.services.statement_lines = self.services.position(line)
         run, self.sink_run = self.sink_run, None
-        smalls = [part for small in line.body for part in _one_target_each(small)]
+        smalls = [(part, self.services.start(small)) for small in line.body for part in _one_target_each(small)]
         self.shared_line = len(smalls) > 1
-        for small in smalls:
+        for small, self.small_start in smalls:
             text, new_sites = self.small(small, env, indent)
             texts.append(text)
             sites += new_sites
@@ -1073,7 +1081,7 @@ class _Walker:
             dropped = self.drop_parts_columns(env, indent)
             if dropped is not None:
                 last_text = texts[-1] if texts[-1] is not None \
-                    else self.services.code_for(smalls[-1]).strip()
+                    else self.services.code_for(smalls[-1][0]).strip()
                 texts[-1] = f"{last_text}\n{dropped}"
         self.record(tuple(sites))
         if not self.emit_code:  # an analysis pass only learns; the last pass writes
@@ -1084,7 +1092,7 @@ class _Walker:
         if all(t is None for t in texts):
             return [line.with_changes(leading_lines=[*line.leading_lines, *todo_lines])]
         parts = [t if t is not None else self.services.code_for(s).strip()
-                 for t, s in zip(texts, smalls)]
+                 for t, (s, _) in zip(texts, smalls)]
         new_lines = []
         statements = [stmt for part in parts for stmt in cst.parse_module(part + "\n").body]
         if not statements:  # nothing left to write (`df = df`, `df.columns.name = None`)
@@ -1311,11 +1319,15 @@ class _Walker:
         """Whether the script changes one of these names' object in place after this statement
         (or anywhere, inside a loop or a function)."""
         here = self.services.statement_lines[1]
-        # (a change on this statement's own line, `keyed = df.set_index("k"); keyed["c"] = ...`,
-        # may come after it: counted too)
-        return any(line > here or line == here and self.shared_line or self.loop_depth
-                   or self.function is not None
-                   for name in names for line in self.services.changed_in_place.get(name, ()))
+        if self.loop_depth or self.function is not None:
+            return any(name in self.services.changed_in_place for name in names)
+        if any(line > here for name in names for line in self.services.changed_in_place.get(name, ())):
+            return True
+        # a change on this statement's own line, `keyed = df.set_index("k"); keyed["c"] = ...`,
+        # counts when it starts after the statement (`df["c"] = y; result = df` does not)
+        return self.shared_line and any(
+            line == here and (self.small_start is None or (line, column) > self.small_start)
+            for name in names for line, column in self.services.changed_at.get(name, ()))
 
     def hand_over_changed(self, stmt: cst.BaseSmallStatement, env: dict[str, Value]) -> tuple[list[str], list[SiteDraft]]:
         """Frames and Series the statement changes in place in a way no rule rewrites

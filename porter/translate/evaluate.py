@@ -120,6 +120,7 @@ class Services:
     # names whose object the script changes in place (`df["c"] = ...`, inplace=True), with the
     # lines where it does
     changed_in_place: dict[str, list[int]] = field(default_factory=dict)
+    changed_at: dict[str, list[tuple[int, int]]] = field(default_factory=dict)  # (line, column)
     # how many times each name is written in the module (a loop's row read after the loop)
     name_uses: dict[str, int] = field(default_factory=dict)
     name_lines: dict[str, list[int]] = field(default_factory=dict)  # where each name is written
@@ -160,6 +161,7 @@ class Services:
     statement_lines: tuple[int, int] = (0, 0)  # lines of the statement being rewritten
     # whether a node is glued to the word before it (`if(`, `not(`): its rewrite needs parentheses
     glued: Callable[[cst.CSTNode], bool] = lambda node: False
+    start: Callable[[cst.CSTNode], tuple[int, int] | None] = lambda node: None  # line, column
     mutated: frozenset[str] = frozenset()  # names the script changes in place (never constants)
     # the script's own functions a converted groupby().apply read as expressions, with the
     # ids of those apply calls (functions.ported_where_applied)
