@@ -23,10 +23,12 @@ from porter.rules.datetimes import is_timedelta, timedelta_arithmetic
 from porter.rules.io_options import DIVIDE_FUNCTION, FLOAT_DIVMOD_FUNCTION
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, check_same_rows, derive, derived_column,
-    value_dtype, without_index,
+    floats_where_missing, value_dtype, without_index,
 )
 from porter.translate.handover import to_pandas
-from porter.translate.values import Column, Frame, Opaque, PandasValue, Scalar, Value
+from porter.translate.values import (
+    NOT_NULLABLE, Column, Frame, Opaque, PandasValue, Scalar, Value, fresh_token,
+)
 
 NUMERIC = {"int", "float"}
 
@@ -78,6 +80,65 @@ def _is_nonzero_constant(value: Value) -> bool:
         and not isinstance(value.const, bool) and value.const != 0
 
 
+ALIGNED_LEFT, ALIGNED_RIGHT = "_porter_left", "_porter_right"
+
+
+def _aligned_group_results(left: Value, right: Value, op: str,
+                           ctx: RuleContext) -> tuple[Column, Column] | None:
+    """Two Series of different frames, each a groupby's sorted result on the same one key
+    (`healthy.groupby("k").size() / df.groupby("k").size()`): pandas aligns them on the labels,
+    the union of the keys in sorted order (a missing key last), NaN where one side lacks a
+    label, an int Series float64 then. The two tables are joined on the key (a full join,
+    missing keys matching each other as pandas' NaN labels do) and sorted by it; int columns
+    are made Float64 once the join has run when it left a value missing (int64 where none
+    is). Each side becomes a column of that table. None for any other pair."""
+    if not (isinstance(left, Column) and isinstance(right, Column)) or left.frame.rows == right.frame.rows:
+        return None
+    frames = (left.frame, right.frame)
+    if not all(len(f.index) == 1 and f.grouped_rows == f.rows for f in frames) \
+            or left.frame.index != right.frame.index:
+        return None
+    key = left.frame.index[0]
+    kinds = {f.dtype(key) for f in frames}
+    if len(kinds) > 1 or None in kinds:
+        raise Unsupported("two Series aligned on labels whose types are not known to be one "
+                          "type: pandas finds no label of one in the other")
+    if not {left.dtype, right.dtype} <= NUMERIC:
+        raise Unsupported("two Series of other than numbers aligned on labels: pandas makes "
+                          "NaN where a label is missing, which changes their type")
+    # (each side's own sort by the key is left out: the join's order is sorted afterwards)
+    sides = [_without_last_sort(side.frame.code, key).method(
+                 "select", emit.col(key), ctx.expr(side, side.frame).method("alias", alias))
+             for side, alias in ((left, ALIGNED_LEFT), (right, ALIGNED_RIGHT))]
+    code = sides[0].method("join", sides[1], on=key, how="full", coalesce=True,
+                           nulls_equal=True).method("sort", key, nulls_last=True)
+    ints = tuple(alias for side, alias in ((left, ALIGNED_LEFT), (right, ALIGNED_RIGHT))
+                 if side.dtype == "int")
+    if ints and op != "/":
+        code = floats_where_missing(code, ints)
+    rows = fresh_token()
+    table = replace(left.frame, code=code, rows=rows, grouped_rows=rows, sites=(),
+                    columns=(key, ALIGNED_LEFT, ALIGNED_RIGHT),
+                    dtypes=((key, left.frame.dtype(key)),
+                            *((alias, side.dtype) for side, alias in
+                              ((left, ALIGNED_LEFT), (right, ALIGNED_RIGHT)) if side.dtype == "float")),
+                    versions=(), float_ints=(), nullable_ints=(), unsure_ints=(), number_cells=None,
+                    column_pairs=(), value_levels=(), number_labels=(), labels_intact=False,
+                    binding=None)
+    return tuple(Column(emit.col(alias), frame=table, name=side.name,  # type: ignore[return-value]
+                        dtype=side.dtype if side.dtype == "float" else None,
+                        refs=frozenset({alias}), nullable_int=NOT_NULLABLE)
+                 for side, alias in ((left, ALIGNED_LEFT), (right, ALIGNED_RIGHT)))
+
+
+def _without_last_sort(code: Code, key: str) -> Code:
+    """A plan without its last step when that step is a plain sort by `key`."""
+    if code.base is None or not code.steps or code.steps[-1] != f".sort({emit.render(key)})":
+        return code
+    steps = code.steps[:-1]
+    return Code(code.base + "".join(steps), emit.ATOM, code.base, steps) if steps else emit.atom(code.base)
+
+
 @rule("series.arith")
 def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
     """Series arithmetic -> Expr operators: a + b, a - b, a * b, a / b, a // b, a % b, a ** b.
@@ -95,13 +156,19 @@ def arithmetic(call: PandasCall, ctx: RuleContext) -> Value:
     number stays Float32 (numpy takes the number as float32). x // d and x % d where a float
     takes part are computed by numpy (pandas_float_divmod): it floors the exact quotient and
     takes the exact remainder, Polars floors the rounded quotient (1.0 // 0.1: 9.0 against
-    10.0).
-    Caveats: two operands of unknown type (a + b without --data) may be text or dates, where
+    10.0). Two groupby results of different frames on the same one key are aligned on their
+    labels (_aligned_group_results).
+    Caveats: two such results of groupby(sort=False) or dropna=False, or of True/False values,
+    are TODOs. Two operands of unknown type (a + b without --data) may be text or dates, where
     fill_nan fails: left out, confidence 0.95 (for - and * only when the script makes no
     datetimes).
     """
     left, right = call.receiver, call.args[0]
     assert left is not None
+    aligned = _aligned_group_results(left, right, call.name, ctx)
+    if aligned is not None:
+        left, right = aligned
+        call = replace(call, receiver=left, args=(right, *call.args[1:]))
     column = base_column(left, right)
     if is_timedelta(left) or is_timedelta(right):
         return timedelta_arithmetic(call, ctx, column)
