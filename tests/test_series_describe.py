@@ -16,6 +16,7 @@ df = pd.DataFrame({
     "kg": [1.5, np.nan, 3.0, 4.0, 5.0, np.nan, 2.0, 0.1, 0.1],
     "n": [1, 2, 3, 4, 5, 6, 7, 8, 8],
     "gone": [np.nan, None, np.nan, np.nan, None, np.nan, np.nan, np.nan, np.nan],
+    "edge": [np.inf, -0.0, 2.5, np.nan, -np.inf, 0.0, 1e-300, 7.0, -0.0],
 })
 """
 
@@ -28,6 +29,10 @@ CASES = [
     'result = df[df["n"] > 99]["kg"].describe().reset_index()',
     'result = (df["kg"] * 3).describe().reset_index()',
     'd = df["n"].describe(); result = d.reset_index()',
+    # infinities and signed zeros around the quartiles (numpy reads inf * 0 as NaN)
+    'result = df["edge"].describe().reset_index()',
+    'result = df.loc[df["edge"] <= 0, "edge"].describe().reset_index()',
+    'result = df.loc[df["edge"] < 3, "edge"].describe().reset_index()',
 ]
 
 

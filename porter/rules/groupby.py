@@ -2104,6 +2104,16 @@ def unique(call: PandasCall, ctx: RuleContext) -> Value:
     return Scalar(series, pytype="series")
 
 
+QUARTILES, QUARTILE_VALUES = ("25%", "50%", "75%"), (0.25, 0.5, 0.75)
+
+
+def _statistic_labels(labels: str | tuple[str, ...]) -> Code:
+    """The column "index" of describe's rows: one statistic's name, or several (a row each)."""
+    if isinstance(labels, str):
+        return emit.pl("lit", labels).method("alias", "index")
+    return emit.pl("lit", emit.pl("Series", list(labels))).method("alias", "index")
+
+
 @rule("frame.describe")
 def describe(call: PandasCall, ctx: RuleContext) -> Value:
     """df.describe() -> count, mean, std, min, 25%, 50%, 75%, max of the numeric columns.
@@ -2120,22 +2130,20 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
     # pandas describes the columns, never the index (a groupby's keys, row labels)
     numeric = without_index(emit.atom("pl.selectors.numeric()"), frame)
     as_float = emit.atom("pl.Float64")
-    stats: list[tuple[str, Code]] = [
+    stats: list[tuple[str | tuple[str, ...], Code]] = [
         ("count", numeric.method("count").method("cast", as_float)),
         # numpy's pairwise sums, as pandas adds (the last digit of Polars' mean and std
         # can differ)
         ("mean", pandas_reduce(numeric.method("cast", as_float), "mean")),
         ("std", pandas_reduce(numeric.method("cast", as_float), "std")),
         ("min", numeric.method("min").method("cast", as_float)),
-        # numpy's interpolation to the last bit, and the sign of a zero (pandas_quantile)
-        ("25%", emit.call(QUANTILE_FUNCTION, numeric, 0.25)),
-        ("50%", emit.call(QUANTILE_FUNCTION, numeric, 0.5)),
-        ("75%", emit.call(QUANTILE_FUNCTION, numeric, 0.75)),
+        # numpy's interpolation to the last bit, and the sign of a zero (pandas_quantile):
+        # the three quartiles in one pass over each column, a row each
+        (QUARTILES, emit.call(QUANTILE_FUNCTION, numeric, list(QUARTILE_VALUES))),
         ("max", numeric.method("max").method("cast", as_float)),
     ]
     # pandas keeps the statistic names in an unnamed index, which reset_index() names "index"
-    parts = [frame.code.method("select", emit.pl("lit", name).method("alias", "index"), expr)
-             for name, expr in stats]
+    parts = [frame.code.method("select", _statistic_labels(name), expr) for name, expr in stats]
     code = emit.pl("concat", parts)
     if frame.columns is not None and len(frame.dtypes) == len(frame.columns) and not any(
             t in ("int", "float") for c, t in frame.dtypes if c not in frame.index):
@@ -2179,22 +2187,20 @@ def series_describe(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("describe of a Series without a text name")
     values = column.code
     as_float = emit.atom("pl.Float64")
-    stats: list[tuple[str, Code]] = [
+    stats: list[tuple[str | tuple[str, ...], Code]] = [
         ("count", values.method("count").method("cast", as_float)),
         # numpy's pairwise sums, as pandas adds (the last digit of Polars' mean and std can
         # differ)
         ("mean", pandas_reduce(values.method("cast", as_float), "mean")),
         ("std", pandas_reduce(values.method("cast", as_float), "std")),
         ("min", values.method("min").method("cast", as_float)),
-        # numpy's interpolation to the last bit, and the sign of a zero (pandas_quantile)
-        ("25%", emit.call(QUANTILE_FUNCTION, values, 0.25)),
-        ("50%", emit.call(QUANTILE_FUNCTION, values, 0.5)),
-        ("75%", emit.call(QUANTILE_FUNCTION, values, 0.75)),
+        # numpy's interpolation to the last bit, and the sign of a zero (pandas_quantile):
+        # the three quartiles in one pass, a row each
+        (QUARTILES, emit.call(QUANTILE_FUNCTION, values, list(QUARTILE_VALUES))),
         ("max", values.method("max").method("cast", as_float)),
     ]
     # pandas labels the statistics in an unnamed index, which reset_index() names "index"
-    parts = [column.frame.code.method("select", emit.pl("lit", label).method("alias", "index"),
-                                      expr.method("alias", name))
+    parts = [column.frame.code.method("select", _statistic_labels(label), expr.method("alias", name))
              for label, expr in stats]
     code = emit.pl("concat", parts)
     result = Frame(code, columns=("index", name), index=("index",), index_unnamed=True,

@@ -256,9 +256,12 @@ def pandas_quantile(column, q):
     \"\"\"The q quantile of the column's values as pandas computes it (numpy's linear
     interpolation a + (b - a) * t, to the last binary digit and the sign of a zero: Polars'
     quantile can be one digit off, which moves a value sitting on a bin's edge into the next
-    bin, and returns -0.0 where numpy's sum gives 0.0).\"\"\"
+    bin, and returns -0.0 where numpy's sum gives 0.0). q may be a list of quantiles: one
+    row each, the values around every position found in one pass.\"\"\"
+    many = isinstance(q, list)
     count = column.count()
-    position = (count.cast(pl.Float64) - 1) * q
+    qs = pl.lit(pl.Series(q, dtype=pl.Float64)) if many else q
+    position = (count.cast(pl.Float64) - 1) * qs
     below = position.floor().cast(pl.Int64)
     last = count.cast(pl.Int64) - 1
     # numpy at the last value (q=1, or one value) takes it twice with weight position + 1,
@@ -268,9 +271,11 @@ def pandas_quantile(column, q):
     # it (the same value where the position falls on one)
     a = column.drop_nulls().quantile(q, "lower")
     b = column.drop_nulls().quantile(q, "higher")
+    if many:
+        a, b = a.explode(), b.explode()
     # where the position falls on a value numpy also reads the next one: NaN when that one
     # is inf or the value itself is -inf (inf * 0)
-    infinite = ((column == float("inf")).sum() >= last - below) \
+    infinite = ((column == float("inf")).sum() >= last - below) \\
         | ((column == float("-inf")).sum() >= below + 1)
     return (
         pl.when((t == 0) & (below < last) & infinite).then(a + float("nan"))
