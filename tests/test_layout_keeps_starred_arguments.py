@@ -37,3 +37,21 @@ def test_layout_means_what_the_one_line_means(text):
     laid_out = layout_chain(Code(text), "", "out = ")
     assert "\n" in laid_out  # long enough to be laid out
     assert ast.dump(ast.parse(laid_out)) == ast.dump(ast.parse(f"out = {text}")), laid_out
+
+
+OPERATIONS = [
+    # two plans' values added: one operand per line, each laid out as an argument when long
+    f'pandas_total(frame_{LONG}.select(pl.col("fee").sum()).collect()) + pandas_total(frame.select(pl.col("d").sum()).collect())',
+    f'a_{LONG[:30]} * b_{LONG[:30]} - c_{LONG[:30]} * d',
+    f'f(frame_{LONG}.select(pl.col("aaaaaaaaaaaaa").sum().alias("x"), pl.col("b").sum()).collect()) / g(x) ** 2',
+    f'-f(frame_{LONG}.select(pl.col("aaaaaaaaaaaaa").sum()).collect()) - (b_{LONG[:30]} + c)',
+]
+
+
+@pytest.mark.parametrize("text", OPERATIONS)
+def test_an_operation_is_laid_out_one_operand_per_line(text):
+    from porter.emit.code import ADD
+    laid_out = layout_chain(Code(text, ADD), "", "out = ")
+    assert "\n" in laid_out
+    assert max(len(line) for line in laid_out.splitlines()) <= 100, laid_out
+    assert ast.dump(ast.parse(laid_out)) == ast.dump(ast.parse(f"out = {text}")), laid_out

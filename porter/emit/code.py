@@ -236,6 +236,11 @@ def layout_chain(code: Code, indent: str, prefix: str, suffix: str = "") -> str:
             chain = _chain_lines(code.text, indent, prefix, suffix)
             if chain is not None:
                 return chain
+        if code.base is None and "\n" not in code.text and code.prec < ATOM:
+            # an operation (two scalars added, each a plan's value): one operand per line
+            operation = _operation_lines(code.text, indent, prefix, suffix)
+            if operation is not None:
+                return operation
         return _split_call(code.text, prefix, suffix) or one_line
     # continuation lines are relative: libcst adds the enclosing block's indentation
     base = [code.base]
@@ -407,6 +412,30 @@ def _split_operation(text: str, prefix: str) -> str | None:
     if len(operands) < 2:
         return None
     return "\n".join([f"{prefix}(", *(f"    {o}" for o in operands), ")"])
+
+
+def _operation_lines(text: str, indent: str, prefix: str, suffix: str) -> str | None:
+    """An operation too long for its line (or running two plans), one operand per line inside
+    parentheses, after its operator; an operand still too long is laid out as an argument."""
+    split = _split_operation(f"({text})", "")
+    if split is None:
+        return None
+    width = LINE_LENGTH - len(indent) - 4
+    lines = [f"{prefix}("]
+    for i, operand in enumerate(split.splitlines()[1:-1]):
+        operand = operand[4:]
+        if len(operand) <= width:
+            lines.append(f"    {operand}")
+            continue
+        # every operand but the first is written after its operator
+        operator, _, rest = operand.partition(" ") if i else ("", "", operand)
+        sign = rest[0] if rest[:1] in ("-", "~") and _parses(rest[1:]) else ""  # -f(...)
+        laid = _split_argument(rest[len(sign):], "    ", width + 4)
+        laid[-1] = laid[-1][:-1] if laid[-1].endswith(",") else laid[-1]
+        head = f"{operator} " if operator else ""
+        laid[0] = f"    {head}{sign}{laid[0][4:]}"
+        lines += laid
+    return "\n".join([*lines, f"){suffix}"])
 
 
 def _one_argument(arg: str) -> Any:
