@@ -178,6 +178,31 @@ def to_text(call: PandasCall, ctx: RuleContext) -> Value:
     return Opaque(_same_call(call, ctx))
 
 
+@rule("frame.info")
+def info(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.info() -> df.collect().to_pandas().info(): pandas prints its own summary.
+
+    Handles: the row labels as pandas shows them (a RangeIndex 0..n-1, or the index porter
+    tracks, restored), each column's non-null count and pandas' dtype (float64 for an int
+    column with a missing value, str, category), the same arguments (verbose=, buf=,
+    show_counts=); the value is None, as in pandas.
+    Caveats: the last line counts the bytes pandas holds, which for text that made the round
+    trip through Polars can be a few bytes off (0.9). Labels that are no longer 0..n-1 (after
+    a filter or a sort) are a TODO, which hands the frame over with its labels. Polars' own
+    summary is lf.collect_schema() and the row count.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    if not (frame.index or frame.labels_intact):
+        raise ctx.todo("info() shows pandas' row labels, which are no longer 0..n-1 here: the "
+                       "frame goes to pandas with its labels")
+    if frame.columns is None or any(frame.dtype(c) in ("str", None) for c in frame.columns):
+        ctx.lower("the memory line of info() counts the bytes pandas holds for text, which "
+                  "after the round trip through Polars can be a few bytes off", 0.9)
+    ctx.handover = True
+    return Opaque(_same_call(call, ctx))
+
+
 def _laid_out_here(call: PandasCall, frame: Frame) -> bool:
     """pandas_to_string lays the frame out as pandas would: no option but index=, plain
     column names, every column of a type it lays out, the row labels (if printed) 0..n-1."""

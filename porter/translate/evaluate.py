@@ -1435,13 +1435,14 @@ _LABEL_READERS = frozenset({
 _ELEMENT_CALLS = frozenset({"series.apply", "series.map", "frame.map", "frame.applymap"})
 
 # calls left on pandas whose result neither shows nor uses the receiver's row labels (a merge
-# numbers its rows afresh; a summary is labelled by keys, values or column names)
+# numbers its rows afresh; a summary is labelled by keys, values or column names; not info()
+# nor memory_usage(), which show the labels' range and the memory they hold)
 _LABELS_NOT_READ = frozenset({
     "frame.merge", "pd.merge", "pd.crosstab", "frame.pivot_table", "pd.pivot_table",
-    "frame.describe", "series.describe", "frame.info", "series.value_counts",
+    "frame.describe", "series.describe", "series.value_counts",
     "frame.value_counts", "frame.nunique", "series.nunique", "frame.corr", "frame.cov",
     "series.mode", "frame.mode", "series.unique", "frame.to_numpy", "series.to_numpy",
-    "series.tolist", "series.to_list", "frame.memory_usage", "frame.dtypes",
+    "series.tolist", "series.to_list", "frame.dtypes",
     # a group's aggregate is labelled by its keys
     "groupby.agg", "groupby.aggregate", "groupby.sum", "groupby.mean", "groupby.median",
     "groupby.min", "groupby.max", "groupby.count", "groupby.size", "groupby.nunique",
