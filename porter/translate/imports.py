@@ -416,6 +416,14 @@ def _insert_after_imports(body: list[cst.CSTNode], *stmts: cst.CSTNode) -> list[
             position = 1
         else:
             break
+    # the definitions read `pl`: after polars' import where code comes before it (an import
+    # below `os.environ[...] = ...`)
+    for i, node in enumerate(body[position:], start=position):
+        if isinstance(node, cst.SimpleStatementLine) and any(
+                isinstance(s, cst.Import) and any(cst.Module([]).code_for_node(a.name) == "polars"
+                                                  for a in s.names) for s in node.body):
+            position = i + 1
+            break
     return [*body[:position], *stmts, *body[position:]]
 
 
