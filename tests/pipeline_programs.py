@@ -111,6 +111,30 @@ STEPS = [
     _s('df = df.set_index("k").reset_index()', "k"),
     _s('df = pd.concat([df, df.head(3)])'),
     _s('df = pd.concat([df, df.tail(2)], ignore_index=True)'),
+    _s('df["e"] = df.apply(lambda r: r["n"] * 2 if r["k"] == "a" else r["n"], axis=1)', "k",
+       numbers="n", adds="e:n"),
+    _s('df["e"] = df["v"].interpolate()', numbers="v", adds="e:n"),
+    _s('df["e"] = df["v"].ffill()', numbers="v", adds="e:n"),
+    _s('df["e"] = df["v"].pct_change()', numbers="v", adds="e:n"),
+    _s('df["e"] = df["n"].mask(df["n"] > 5, -1)', numbers="n", adds="e:n"),
+    _s('df = df.drop(columns=["t"])', "t", leaves=None),
+    _s('df.insert(0, "f", df["n"] * 2)', numbers="n", adds="f:n"),
+    _s('df["e"] = df["v"].ewm(span=3).mean()', numbers="v", adds="e:n"),
+    _s('df["e"] = df["k"].str.cat(df["g"], sep="-")', "k g", adds="e:t"),
+    _s('df["e"] = df.groupby("k")["v"].rank()', "k", numbers="v", adds="e:n"),
+    _s('df["e"] = df["v"].cummax()', numbers="v", adds="e:n"),
+    _s('df["e"] = df["v"].expanding().sum()', numbers="v", adds="e:n"),
+    _s('df = df.set_index("n").sort_index().reset_index()', numbers="n"),
+    _s('df["e"] = df["t"].str.split(" ").str[0]', "t", adds="e:t"),
+    _s('df["e"] = df["d"].dt.dayofweek', "d", adds="e:n"),
+    _s('df["e"] = df["d"] + pd.Timedelta(days=3)', "d", adds="e:d"),
+    _s('df["e"] = df["v"].fillna(df.groupby("g")["v"].transform("median"))', "g", numbers="v",
+       adds="e:n"),
+    _s('df["e"] = df["k"].map(df["k"].value_counts())', "k", adds="e:n"),
+    _s('df["e"] = df["v"] / df.groupby("k")["v"].transform("sum")', "k", numbers="v",
+       adds="e:n"),
+    _s('df = df.rename(columns={"v": "w2"}).rename(columns={"w2": "v"})'),
+    _s('df["e"] = df["t"].str.replace("p", "P", regex=False).str.lower()', "t", adds="e:t"),
     # joins
     _s('df = df.merge(other, on="k", how="left")', "k", adds="w:n"),
     _s('df = df.merge(other, on="k", how="inner")', "k", adds="w:n"),
@@ -147,6 +171,8 @@ def programs(draw: st.DrawFn, max_steps: int = 5) -> str:
         if step.remakes:
             kinds = {}
         kinds.update(step.adds)
+        if "drop(columns=" in step.code:
+            kinds.pop("t", None)
     return PRELUDE + "\n".join(lines) + "\nresult = df\n"
 
 
