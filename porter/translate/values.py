@@ -84,6 +84,9 @@ class Frame(Value):
     # (sorted last), where set_index codes it as missing: sort_index and unstack read the two
     # differently, so a hand-over makes the levels as the groupby made them
     levels_with_missing: bool = field(default=False, kw_only=True)
+    # the rows token under which the rows are sorted ascending by all the index keys, as
+    # sort_index() leaves them (pandas' MultiIndex is then lexsorted: its levels can be sliced)
+    sorted_rows: int | None = field(default=None, kw_only=True)
     # a pivot (pivot_table, crosstab, unstack) on an integer key made the columns not named
     # here: pandas labels them with the key's values (2024), Polars names them as text
     # ("2024"); the names here (the index keys, a margin, columns written since) are text in
