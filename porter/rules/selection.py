@@ -423,9 +423,9 @@ def _rows_by_levels(frame: Frame, rows: Opaque, ctx: RuleContext) -> Frame:
         raise ctx.todo("rows chosen by index label: one label or slice per key column holding "
                        "the labels is ported")
     import pandas as pd
-    conditions: list[Code] = []
-    labels = False
+    picks: list[tuple[list[Code], bool]] = []  # per level picked: its conditions, a label?
     for part, key in zip(parts, keys):
+        conditions: list[Code] = []
         kind = frame.dtype(key)
         if isinstance(part, slice) and part == slice(None):
             continue
@@ -433,8 +433,7 @@ def _rows_by_levels(frame: Frame, rows: Opaque, ctx: RuleContext) -> Frame:
             if {str: "str", int: "int"}.get(type(part)) != kind:
                 raise ctx.todo("a label of another type than its key column (or a key of "
                                "unknown type)")
-            conditions.append(emit.binop(emit.col(key), "==", emit.lit(part)))
-            labels = True
+            picks.append(([emit.binop(emit.col(key), "==", emit.lit(part))], True))
             continue
         if part.step is not None:
             raise ctx.todo("a slice of labels with a step")
@@ -458,16 +457,27 @@ def _rows_by_levels(frame: Frame, rows: Opaque, ctx: RuleContext) -> Frame:
                                "numbers; a day written as text on a date key)")
         ctx.lower("a slice of a level on rows holding a missing key: pandas raises (its labels "
                   "are not sorted then), Polars leaves the row out", 0.95)
-    if not conditions:
+        if conditions:
+            picks.append((conditions, False))
+    if not picks:
         return frame
-    picked = derive(frame, frame.code.method("filter", *conditions), same_rows=False)
-    if labels:
-        # no row left: pandas' KeyError (pandas_label_rows raises it)
-        named = [p for p in parts if not isinstance(p, slice)]
-        code = emit.call(LABEL_ROWS_FUNCTION, picked.code.method("collect"),
-                         emit.lit(named[0] if len(named) == 1 else tuple(named))).method("lazy")
-        picked = replace(picked, code=code)
-    return picked
+    if not any(label for _, label in picks):
+        # slices only: the rows between their ends, none at all without an error
+        return derive(frame, frame.code.method("filter", *(c for cs, _ in picks for c in cs)),
+                      same_rows=False)
+    # a label no row holds, or one that leaves no row with the picks before it: pandas'
+    # KeyError, checked on the rows (pandas_level_rows)
+    code = emit.call(LEVEL_ROWS_FUNCTION, frame.code.method("collect"), emit.atom(
+        "[" + ", ".join(f"({_all(c).text}, {l})" for c, l in picks) + "]"),
+        emit.atom(repr(parts))).method("lazy")
+    return derive(frame, code, same_rows=False)
+
+
+def _all(conditions: list[Code]) -> Code:
+    code = conditions[0]
+    for other in conditions[1:]:
+        code = emit.binop(code, "&", other)
+    return code
 
 
 def _row_at(frame: Frame, row: "RowPosition", ctx: RuleContext) -> Value:
@@ -569,6 +579,28 @@ def pandas_label_rows(rows, label):
     if not rows.height:
         raise KeyError(label)
     return rows
+'''
+
+
+# df.loc[pd.IndexSlice["a", :]] without pandas: the rows each level's label or slice picks,
+# or pandas' KeyError as MultiIndex.get_locs raises it
+LEVEL_ROWS_FUNCTION = "pandas_level_rows"
+LEVEL_ROWS_DEFINITION = '''\
+def pandas_level_rows(rows, picks, key):
+    """The rows of df.loc[key] of a table labelled by several keys, each level's pick (a
+    label or a slice, as a condition on its key) applied in turn as pandas does: KeyError
+    where a label no row holds, or one that leaves no row with the picks before it (a slice
+    never raises: pandas takes it among the rows picked so far)."""
+    matched = rows.select(
+        *(pick.fill_null(False).sum().alias(f"one{i}") for i, (pick, _) in enumerate(picks)),
+        *(pl.all_horizontal([p.fill_null(False) for p, _ in picks[: i + 1]]).sum().alias(f"all{i}")
+          for i in range(len(picks))),
+    ).row(0)
+    for i, (_, label) in enumerate(picks):
+        one, kept = matched[i], matched[len(picks) + i]
+        if label and (not one or not kept):
+            raise KeyError(key)
+    return rows.filter(*(p for p, _ in picks))
 '''
 
 
