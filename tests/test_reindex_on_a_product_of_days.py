@@ -158,3 +158,17 @@ def test_what_pandas_refuses_is_refused(error: type[Exception], source: str) -> 
 def test_what_porter_cannot_check_stays_a_todo(source: str) -> None:
     result = convert(HEAD + source)
     assert [s for s in result.sites if s.status == "todo"], result.converted_text
+
+
+@pytest.mark.parametrize("freq", ["D", "24h", "6h"])
+def test_a_range_over_the_clock_change_matches_pandas(freq: str) -> None:
+    # pandas 3's Day is a calendar day, as Polars' "1d"; 24h is a fixed duration in both
+    source = f'''
+import pandas as pd
+sailings = pd.DataFrame({{"at": ["2026-03-27 10:00", "2026-03-31 09:30", "2026-03-29 12:00"], "cars": [3, 1, 2]}})
+sailings["at"] = pd.to_datetime(sailings["at"]).dt.tz_localize("Europe/Oslo")
+days = pd.date_range(sailings["at"].min(), sailings["at"].max(), freq="{freq}")
+result = pd.DataFrame({{"at": days}})
+'''
+    result = differential(source)
+    assert not [s for s in result.sites if s.status in ("todo", "handover")], result.converted_text
