@@ -154,6 +154,9 @@ def test_what_pandas_refuses_is_refused(error: type[Exception], source: str) -> 
     '    result = "ValueError"\n',
     # a slice of a level on rows not sorted by the keys: pandas raises UnsortedIndexError
     REINDEXED + 'result = daily.swaplevel().loc[pd.IndexSlice["2026-06-09":"2026-06-12", :], :].reset_index()\n',
+    # sorted by other keys than the ones labelling the rows now
+    REINDEXED + 'by_day = daily.sort_index().reset_index().set_index(["day", "pier"])\n'
+    'result = by_day.loc[pd.IndexSlice["2026-06-09":"2026-06-12", :], :].reset_index()\n',
 ])
 def test_what_porter_cannot_check_stays_a_todo(source: str) -> None:
     result = convert(HEAD + source)

@@ -1010,8 +1010,9 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
         rows = fresh_token()
         # a groupby's table sorted by its key again is in the groupby's own order
         grouped = rows if ascending and frame.grouped_rows == frame.rows else None
-        sorted_frame = derive(frame, code, same_rows=False, rows=rows, grouped_rows=grouped,
-                              sorted_rows=rows if ascending and frame.index else None)
+        sorted_frame = derive(frame, code, same_rows=False, rows=rows, grouped_rows=grouped)
+        if ascending and frame.index:
+            sorted_frame = replace(sorted_frame, sorted_rows=sorted_frame.sorted_mark())
     if isinstance(receiver, Column):
         return replace(receiver, frame=sorted_frame, sites=())
     return sorted_frame

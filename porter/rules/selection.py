@@ -437,7 +437,7 @@ def _rows_by_levels(frame: Frame, rows: Opaque, ctx: RuleContext) -> Frame:
             continue
         if part.step is not None:
             raise ctx.todo("a slice of labels with a step")
-        if frame.sorted_rows != frame.rows:
+        if not frame.sorted_by_keys():
             raise ctx.todo("a slice of labels on rows porter does not know to be sorted by the "
                            "keys (pandas raises unless they are: sort_index() first)")
         for bound, op in ((part.start, ">="), (part.stop, "<=")):
