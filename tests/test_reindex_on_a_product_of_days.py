@@ -175,3 +175,11 @@ result = pd.DataFrame({{"at": days}})
 '''
     result = differential(source)
     assert not [s for s in result.sites if s.status in ("todo", "handover")], result.converted_text
+
+
+def test_a_product_read_otherwise_stays_pandas_and_agrees() -> None:
+    # the MultiIndex is printed too: pandas' own, and the range in it pandas' DatetimeIndex
+    source = HEAD + REINDEXED + 'print(len(full))\nresult = daily.reset_index()\n'
+    result = differential(source)
+    assert {s.key for s in result.sites if s.status == "todo"} >= {
+        "pd.date_range", "pd.MultiIndex.from_product"}, result.converted_text
