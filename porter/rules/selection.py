@@ -335,6 +335,8 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     labelled by one key column: the rows holding the label picked in Polars, handed to pandas,
     which gives its row Series (one row), a frame (several) or KeyError (none), as on the table.
     df.loc[("a", 2)] of a table labelled by as many key columns is read the same way.
+    df.loc[pd.IndexSlice["a", :], cols] of a table labelled by several key columns: a filter
+    per level picked, KeyError where pandas raises it (_rows_by_levels).
     Caveats: other row labels (df.loc[[...]], df.loc["a":"c"], row numbers after a filter) are
     TODOs: the index is not data in Polars.
     """
