@@ -183,3 +183,18 @@ def test_a_product_read_otherwise_stays_pandas_and_agrees() -> None:
     result = differential(source)
     assert {s.key for s in result.sites if s.status == "todo"} >= {
         "pd.date_range", "pd.MultiIndex.from_product"}, result.converted_text
+
+
+@pytest.mark.parametrize("source", [
+    # levels without names: pandas names a level after the Series given for it
+    REINDEXED.replace(', names=["pier", "day"]', '') + 'result = daily.reset_index()\n',
+    # the product ported, the reindex not (no fill_value: NaN rows, whole numbers made
+    # floats): pandas' MultiIndex of its labels
+    'daily = trips.groupby(["pier", "day"]).agg(cars=("cars", "sum"), fare=("fare", "sum"))\n'
+    'days = pd.date_range(trips["day"].min(), trips["day"].max(), freq="D")\n'
+    'full = pd.MultiIndex.from_product([["Holm", "Skál"], days], names=["pier", "day"])\n'
+    'result = daily.reindex(full).reset_index()\n',
+])
+def test_a_product_porter_does_not_port_agrees(source: str) -> None:
+    result = differential(HEAD + source)
+    assert [s for s in result.sites if s.status == "todo"], result.converted_text

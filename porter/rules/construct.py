@@ -541,6 +541,18 @@ def _frame_columns_only(module: object, text: str) -> tuple[int, int] | None:
 def _product_only_reindexed(module: ast.Module, node: ast.Call, targets: set[int]) -> bool:
     """Whether the from_product call `node` is written as the labels of a reindex (its id in
     `targets`) or bound once to a name read only as such."""
+    # what multiindex_from_product ports, seen in the script: the levels a list, one per name
+    # of names=[...] (distinct texts), nothing else given; otherwise the product stays
+    # pandas', and a level of it must be pandas' DatetimeIndex (pandas names a level after
+    # the Series given for it)
+    names = [k.value for k in node.keywords if k.arg == "names"]
+    if len(node.args) != 1 or len(node.keywords) != 1 or len(names) != 1 \
+            or not isinstance(names[0], (ast.List, ast.Tuple)) \
+            or not all(isinstance(e, ast.Constant) and isinstance(e.value, str)
+                       for e in names[0].elts) \
+            or len({e.value for e in names[0].elts}) != len(names[0].elts) \
+            or len(names[0].elts) != len(node.args[0].elts) or not names[0].elts:
+        return False
     if id(node) in targets:
         return True
     bound = [a.targets[0].id for a in ast.walk(module)
