@@ -194,6 +194,14 @@ def test_a_product_read_otherwise_stays_pandas_and_agrees() -> None:
     'days = pd.date_range(trips["day"].min(), trips["day"].max(), freq="D")\n'
     'full = pd.MultiIndex.from_product([["Holm", "Skál"], days], names=["pier", "day"])\n'
     'result = daily.reindex(full).reset_index()\n',
+    # a range from the data over a Series and a table kept on pandas (no fill_value): the
+    # labels unnamed, as pandas' DatetimeIndex
+    'per_day = trips.groupby("day")["cars"].sum()\n'
+    'days = pd.date_range(trips["day"].min(), trips["day"].max(), freq="D")\n'
+    'result = per_day.reindex(days).reset_index()\n',
+    'per_day = trips.groupby("day")[["cars"]].sum()\n'
+    'days = pd.date_range(trips["day"].min(), trips["day"].max(), freq="D")\n'
+    'result = per_day.reindex(days).reset_index()\n',
 ])
 def test_a_product_porter_does_not_port_agrees(source: str) -> None:
     result = differential(HEAD + source)
