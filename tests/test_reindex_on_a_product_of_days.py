@@ -206,3 +206,18 @@ def test_a_product_read_otherwise_stays_pandas_and_agrees() -> None:
 def test_a_product_porter_does_not_port_agrees(source: str) -> None:
     result = differential(HEAD + source)
     assert [s for s in result.sites if s.status == "todo"], result.converted_text
+
+
+def test_whole_numbers_pandas_holds_as_floats_agree() -> None:
+    # a left merge leaves a pier without a fee: pandas holds the fees as floats, and the fill
+    # of the new rows is written 0.0
+    source = HEAD + '''
+fees = pd.DataFrame({"pier": ["Holm", "Skál"], "fee": [3, 4]})
+trips = trips.merge(fees, on="pier", how="left")
+daily = trips.groupby(["pier", "day"])[["fee"]].max()
+days = pd.date_range(trips["day"].min(), trips["day"].max(), freq="D")
+full = pd.MultiIndex.from_product([["Holm", "Øyra"], days], names=["pier", "day"])
+result = daily.reindex(full, fill_value=0).reset_index()
+result.to_csv("/dev/null")
+'''
+    differential(source)

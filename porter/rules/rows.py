@@ -1248,6 +1248,9 @@ def _reindex_frame_product(call: PandasCall, frame: Frame, target: Opaque,
     if not cells or not {frame.dtype(c) for c in cells} <= {"int", "float"}:
         raise ctx.todo("columns that may hold other than numbers: pandas writes the fill value "
                        "into them as it is")
+    if any(c in cells for c, _ in frame.float_ints):
+        raise ctx.todo("whole numbers pandas may hold as floats (a step gave them a missing "
+                       "value): the fill would be written 0.0 there, 0 here")
     found = "_porter_found"
     names = list(product.names)
     if set(cells) & {*names, found}:
