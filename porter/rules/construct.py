@@ -123,6 +123,12 @@ def literal_frame(call: PandasCall, ctx: RuleContext, data: Any) -> Frame:
         _text_labels(list(data), ctx)
         lengths = {len(v) if isinstance(v, (list, tuple)) else v.size
                    for v in data.values() if isinstance(v, (list, tuple, DateRange))}
+        if None in lengths:  # a range whose ends come from the data: its length is not known
+            lengths.discard(None)
+            if lengths:
+                raise ctx.todo("a date range whose length is known only at run time beside "
+                               "columns of values (pandas raises unless the lengths agree)")
+            lengths = {1}  # (the single values beside it are broadcast)
         if len(lengths) > 1:
             raise ctx.todo("columns of different lengths (pandas raises)")
         if not lengths:
@@ -429,7 +435,7 @@ class DateRange:
     rule that would write it out as a Python value fails, and keeps its call on pandas."""
 
     code: Code
-    size: int
+    size: int | None  # None: ends read from the data (known only at run time)
     lines: tuple[int, int] = (0, 0)  # where the call is written (its site, when inline)
 
     def __repr__(self) -> str:
@@ -503,6 +509,14 @@ def _frame_columns_only(module: object, text: str) -> tuple[int, int] | None:
             # s.reindex(<it>, fill_value=...): the labels of a Series laid over the range, a
             # join on a frame of them (rows.reindex)
             columns.add(id(node.args[0]))
+    for node in ast.walk(module):
+        # a level of pd.MultiIndex.from_product([sheds, <it>], names=...) that is itself only
+        # the labels of a reindex: a frame of the range cross-joined (multiindex_from_product)
+        if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
+                and node.func.attr == "from_product" and node.args \
+                and isinstance(node.args[0], (ast.List, ast.Tuple)) \
+                and _product_only_reindexed(module, node, columns):
+            columns.update(id(e) for e in node.args[0].elts)
     names: set[str] = set()  # names bound to the range
     lines: tuple[int, int] | None = None
     for node in ast.walk(module):
@@ -522,6 +536,29 @@ def _frame_columns_only(module: object, text: str) -> tuple[int, int] | None:
                 and id(node) not in columns:
             return None
     return lines
+
+
+def _product_only_reindexed(module: ast.Module, node: ast.Call, targets: set[int]) -> bool:
+    """Whether the from_product call `node` is written as the labels of a reindex (its id in
+    `targets`) or bound once to a name read only as such."""
+    # what multiindex_from_product ports, seen in the script: the levels a list, one per name
+    # of names=[...] (distinct texts), nothing else given; otherwise the product stays
+    # pandas', and a level of it must be pandas' DatetimeIndex (pandas names a level after
+    # the Series given for it)
+    names = [k.value for k in node.keywords if k.arg == "names"]
+    if len(node.args) != 1 or len(node.keywords) != 1 or len(names) != 1 \
+            or not isinstance(names[0], (ast.List, ast.Tuple)) \
+            or not all(isinstance(e, ast.Constant) and isinstance(e.value, str)
+                       for e in names[0].elts) \
+            or len({e.value for e in names[0].elts}) != len(names[0].elts) \
+            or len(names[0].elts) != len(node.args[0].elts) or not names[0].elts:
+        return False
+    if id(node) in targets:
+        return True
+    bound = [a.targets[0].id for a in ast.walk(module)
+             if isinstance(a, ast.Assign) and a.value is node and len(a.targets) == 1
+             and isinstance(a.targets[0], ast.Name)]
+    return len(bound) == 1 and _only_reindexed(module, bound[0])
 
 
 _MOST_STAMPS = 1_000_000  # a longer range is made by pandas at run time (a TODO), not here
@@ -559,6 +596,9 @@ def date_range(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo("porter ports a date range as a column of a frame written out "
                        "(pd.DataFrame({\"day\": pd.date_range(...)})); here pandas' "
                        "DatetimeIndex is used otherwise")
+    if call.has("start", 0) and call.has("end", 1) and isinstance(call.arg("start", 0), Scalar) \
+            and isinstance(call.arg("end", 1), Scalar):
+        return _date_range_of_data(call, ctx, lines)
     start = call.const("start", 0, None, kinds=(str,))
     end = call.const("end", 1, None, kinds=(str,))
     periods = call.const("periods", 2, None, kinds=(int,))
@@ -608,6 +648,58 @@ def date_range(call: PandasCall, ctx: RuleContext) -> Value:
     if made.dtype != pl.Datetime("us") or made.to_list() != list(stamps.to_pydatetime()):
         raise ctx.todo("Polars' range differs from pandas' here")  # checked, never assumed
     return Opaque(code, const=DateRange(code, len(stamps), lines))
+
+
+def _date_range_of_data(call: PandasCall, ctx: RuleContext, lines: tuple[int, int]) -> Value:
+    """pd.date_range(df["d"].min(), df["d"].max(), freq=...) -> df.select(pl.datetime_range(
+    pl.col("d").min(), pl.col("d").max(), interval)).collect().to_series(): the ends are
+    reductions of one frame's date columns, computed in one plan and collected once.
+
+    Both libraries start at the first end (its time of day kept) and step up to the last end
+    included, in the column's unit (pandas keeps the Timestamps' unit, Polars the column's);
+    a missing end (an empty or all-missing column) stops the script in both (pandas: "Neither
+    `start` nor `end` can be NaT", Polars: "start is an out-of-range time"). pandas 3's Day
+    is a calendar day, as Polars' "1d" (with a time zone too); a step in hours or less is a
+    fixed duration in both."""
+    import warnings
+    import pandas as pd
+    ctx.reject_unknown(call, "start", "end", "freq", positional=4)
+    if call.has("periods", 2):
+        raise ctx.todo("periods= with both ends given (pandas spaces them evenly)")
+    start, end = call.arg("start", 0), call.arg("end", 1)
+    assert isinstance(start, Scalar) and isinstance(end, Scalar)
+    aggs = [start.agg, end.agg]
+    if not all(isinstance(a, Column) for a in aggs) or aggs[0].frame.rows != aggs[1].frame.rows:
+        raise ctx.todo("ends computed other than as reductions of one frame's date columns "
+                       "(df[\"d\"].min(), df[\"d\"].max())")
+    if not all(a.dtype == "datetime" for a in aggs):
+        raise ctx.todo("ends that are not reductions of datetime columns")
+    freq = call.const("freq", 3, "D", kinds=(str,))
+    modern = modern_offset(freq)
+    if modern is not None:
+        ctx.lower(f"freq={freq!r} is read as {modern!r}, its name since pandas 2.2 (pandas "
+                  "3.1 rejects the old one)", 1.0)
+        freq = modern
+    try:
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            offset = pd.tseries.frequencies.to_offset(freq)
+            step = offset.nanos
+    except (ValueError, TypeError) as error:
+        raise ctx.todo(f"freq={freq!r} is anchored to a calendar or not read by pandas "
+                       f"({error}): porter ports fixed steps (D, h, min, s, ...)") from None
+    if step <= 0:
+        raise ctx.todo(f"freq={freq!r}: a step that is not forward")
+    if type(offset).__name__ == "Day":
+        interval = f"{offset.n}d"  # calendar days in both
+    else:
+        unit, size = next((u, s) for u, s in _INTERVALS[1:] if step % s == 0)
+        interval = f"{step // size}{unit}"
+    frame = aggs[0].frame
+    ends = [ctx.expr(a, frame) for a in aggs]
+    code = frame.code.method("select", emit.pl("datetime_range", ends[0], ends[1], interval)) \
+        .method("collect").method("to_series")
+    return Opaque(code, const=DateRange(code, None, lines))
 
 
 @dataclass(frozen=True)

@@ -455,6 +455,43 @@ def series_swaplevel(call: PandasCall, ctx: RuleContext) -> Value:
                   nullable_int=column.nullable_int)
 
 
+@rule("frame.swaplevel")
+def frame_swaplevel(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.swaplevel(i, j) of a table labelled by several key columns -> the key columns in
+    their new order (select), the rows as they were.
+
+    Handles: levels by name or position (-2 and -1 by default); the rows keep their order,
+    no longer sorted by the first key (sort_index() sorts them by the new order); the columns
+    stay as they were.
+    Caveats: a table whose labels are row numbers or unnamed keys, whose columns porter does
+    not know, axis=1 (the column labels' levels) are TODOs."""
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "i", "j", "axis", positional=3)
+    if call.const("axis", 2, 0, kinds=(int, str)) not in (0, "index", "rows"):
+        raise ctx.todo("axis=1: the levels of the column labels")
+    keys = list(frame.index)
+    if len(keys) < 2 or frame.index_unnamed or row_labels_carried(frame):
+        raise ctx.todo("a table labelled by other than several named key columns")
+    if frame.columns is None or frame.number_cells:
+        raise ctx.todo("a table whose columns porter does not know")
+    picked = []
+    for name, position, default in (("i", 0, -2), ("j", 1, -1)):
+        level = call.const(name, position, default, kinds=(str, int))
+        if isinstance(level, int) and not isinstance(level, bool) and -len(keys) <= level < len(keys):
+            picked.append(level % len(keys))
+        elif isinstance(level, str) and keys.count(level) == 1:
+            picked.append(keys.index(level))
+        else:
+            raise ctx.todo(f"level {level!r} is not a level of the index (pandas raises)")
+    first, second = picked
+    keys[first], keys[second] = keys[second], keys[first]
+    cells = [c for c in frame.columns if c not in keys]
+    code = frame.code.method("select", *keys, *cells)
+    return derive(frame, code, same_rows=True, index=tuple(keys), columns=(*keys, *cells),
+                  grouped_rows=None, sorted_rows=None)
+
+
 @rule("series.reset_index")
 def series_reset_index(call: PandasCall, ctx: RuleContext) -> Value:
     """s.reset_index() -> a frame of the index columns and the values (name= renames them)."""
@@ -974,6 +1011,8 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
         # a groupby's table sorted by its key again is in the groupby's own order
         grouped = rows if ascending and frame.grouped_rows == frame.rows else None
         sorted_frame = derive(frame, code, same_rows=False, rows=rows, grouped_rows=grouped)
+        if ascending and frame.index:
+            sorted_frame = replace(sorted_frame, sorted_rows=sorted_frame.sorted_mark())
     if isinstance(receiver, Column):
         return replace(receiver, frame=sorted_frame, sites=())
     return sorted_frame
@@ -1117,15 +1156,19 @@ def frame_reindex(call: PandasCall, ctx: RuleContext) -> Value:
     table had stays missing (fill_value fills the new rows only); the columns keep their
     name (an unstack's key); the result is labelled by the range, whose name is None
     (rename_axis names it, reset_index() calls it "index").
+    pd.MultiIndex.from_product as the target: a left join of a groupby's table on the cross
+    join of the levels (_reindex_frame_product).
     Caveats: other targets, columns=, no fill_value, method=, limit=, tolerance=, tables whose
     labels may repeat (pandas raises) and columns that may hold other than numbers are TODOs."""
-    from porter.rules.construct import DateRange
+    from porter.rules.construct import DateRange, ProductLabels
     from porter.rules.selection import unique_key
     from porter.translate.context import number_cells
     frame = call.receiver
     assert isinstance(frame, Frame)
     ctx.reject_unknown(call, "index", "labels", "fill_value", positional=1)
     target = call.args[0] if call.args else call.kwargs.get("index", call.kwargs.get("labels"))
+    if isinstance(target, Opaque) and isinstance(target.const, ProductLabels):
+        return _reindex_frame_product(call, frame, target, ctx)
     if not (isinstance(target, Opaque) and isinstance(target.const, DateRange)
             and type(target.const) is DateRange):
         raise ctx.todo("a target other than a pd.date_range written in the script: a join on a "
@@ -1175,6 +1218,65 @@ def frame_reindex(call: PandasCall, ctx: RuleContext) -> Value:
     return replace(frame, code=code, sites=(), columns=columns, index=(labels,),
                    index_unnamed=True, dtypes=dtypes, labels_intact=False, rows=rows,
                    grouped_rows=rows, number_cells=(code.text, kind) if pivoted else None)
+
+
+def _reindex_frame_product(call: PandasCall, frame: Frame, target: Opaque,
+                           ctx: RuleContext) -> Value:
+    """df.reindex(pd.MultiIndex.from_product(levels, names=...), fill_value=x) of a groupby's
+    table on as many keys: a left join of the table on the cross join of the levels (the
+    table's keys matched to the levels by position, as pandas matches them), every
+    combination once in the product's order; one the table has no row for gets fill_value in
+    every column, a missing value it had stays missing, and a whole-number column stays
+    whole numbers unless the fill is a fraction. The result is labelled by the levels' names."""
+    product = target.const
+    keys = list(frame.index)
+    if len(keys) != len(product.names) or frame.grouped_rows != frame.rows \
+            or row_labels_carried(frame):
+        raise ctx.todo("a table not labelled by as many keys of distinct combinations (a "
+                       "groupby's) as the product has levels: pandas raises for labels that "
+                       "repeat")
+    kinds = {"str": "pl.String", "int": "pl.Int64", "datetime": None}
+    if not all(frame.dtype(k) in kinds for k in keys):
+        raise ctx.todo("keys of a type other than text, whole numbers or dates")
+    fill = call.const("fill_value", None, None, kinds=(int, float, type(None)))
+    if fill is None or isinstance(fill, bool):
+        raise ctx.todo("no fill_value (or one that is not a number): pandas makes the new rows "
+                       "NaN and turns integers float")
+    if frame.columns is None or frame.number_cells:
+        raise ctx.todo("a table whose columns porter does not know")
+    cells = [c for c in frame.columns if c not in keys]
+    if not cells or not {frame.dtype(c) for c in cells} <= {"int", "float"}:
+        raise ctx.todo("columns that may hold other than numbers: pandas writes the fill value "
+                       "into them as it is")
+    if any(c in cells for c, _ in frame.float_ints):
+        raise ctx.todo("whole numbers pandas may hold as floats (a step gave them a missing "
+                       "value): the fill would be written 0.0 there, 0 here")
+    found = "_porter_found"
+    names = list(product.names)
+    if set(cells) & {*names, found}:
+        raise ctx.todo("a column named like a level of the product")
+    mark = emit.pl("lit", True).method("alias", found)
+    if tuple(keys) == product.names:
+        right = frame.code.method("with_columns", mark)
+    else:
+        right = frame.code.method("select", *(emit.col(k) if k == n else
+                                              emit.col(k).method("alias", n)
+                                              for k, n in zip(keys, names)),
+                                  *cells, mark)
+    # the levels of text or numbers as the keys' types (an empty list has none of its own); a
+    # date range is Datetime already, in the unit of the dates it was read from
+    casts = [f"{emit.lit(n).text}: {kinds[frame.dtype(k)]}" for k, n in zip(keys, names)
+             if kinds[frame.dtype(k)] is not None]
+    labels = target.code.method("cast", emit.atom("{" + ", ".join(casts) + "}")) \
+        if casts else target.code
+    filled = emit.when(emit.col(found), emit.pl("col", *cells), fill)
+    code = labels.method("join", right, on=names, how="left", maintain_order="left") \
+        .method("select", *names, filled)
+    rows = fresh_token()
+    dtypes = (*((n, frame.dtype(k)) for k, n in zip(keys, names)),
+              *((c, "float" if isinstance(fill, float) else frame.dtype(c)) for c in cells))
+    return Frame(code, columns=(*names, *cells), index=tuple(names), dtypes=dtypes,
+                 labels_intact=False, rows=rows, grouped_rows=rows)
 
 
 def _reindex_product(call: PandasCall, column: Column, target: Opaque, ctx: RuleContext) -> Value:

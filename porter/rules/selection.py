@@ -335,6 +335,8 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     labelled by one key column: the rows holding the label picked in Polars, handed to pandas,
     which gives its row Series (one row), a frame (several) or KeyError (none), as on the table.
     df.loc[("a", 2)] of a table labelled by as many key columns is read the same way.
+    df.loc[pd.IndexSlice["a", :], cols] of a table labelled by several key columns: a filter
+    per level picked, KeyError where pandas raises it (_rows_by_levels).
     Caveats: other row labels (df.loc[[...]], df.loc["a":"c"], row numbers after a filter) are
     TODOs: the index is not data in Polars.
     """
@@ -366,6 +368,9 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
         frame = derive(frame, code, same_rows=False)
     elif isinstance(rows, Column):
         frame = derive(frame, frame.code.method("filter", ctx.expr(rows, frame)), same_rows=False)
+    elif _level_selection(rows) and len(frame.index) > 1:
+        assert isinstance(rows, Opaque)
+        frame = _rows_by_levels(frame, rows, ctx)  # df.loc[pd.IndexSlice["a", :], ...]
     elif (_one_label(rows) or _label_read(rows, frame)) and isinstance(cols, Opaque) \
             and isinstance(cols.const, str):
         return _labelled_value(frame, rows, cols, ctx)  # df.loc["label", "c"], as df.at
@@ -388,6 +393,93 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(cols, Opaque) and isinstance(cols.const, slice):
         return _column_label_slice(frame, cols.const)
     raise Unsupported("columns chosen by something other than names")
+
+
+def _level_selection(value: Value) -> bool:
+    """A tuple of labels and slices written out, one per level, at least one a slice
+    (df.loc[pd.IndexSlice["a", :]], df.loc[("a", slice(None))])."""
+    return isinstance(value, Opaque) and isinstance(value.const, tuple) and bool(value.const) \
+        and any(isinstance(p, slice) for p in value.const) \
+        and all(isinstance(p, slice) or isinstance(p, (str, int)) and not isinstance(p, bool)
+                for p in value.const)
+
+
+_DAY_TEXT = re.compile(r"\d{4}-\d{2}-\d{2}")
+
+
+def _rows_by_levels(frame: Frame, rows: Opaque, ctx: RuleContext) -> Frame:
+    """df.loc[pd.IndexSlice["a", :], ...] of a table labelled by several key columns (a
+    MultiIndex) -> a filter on the key columns, the levels all kept, the rows in their order.
+
+    A label picks the rows whose key is that label: where no row is left pandas raises
+    KeyError (a label that is in none, or in none with the others), as pandas_label_rows
+    does. slice(None) (`:`) takes every row. A slice of labels takes the keys between its
+    ends, both included, which pandas does only on rows sorted by the keys (sort_index();
+    otherwise it raises UnsortedIndexError, so porter ports it only after one): text and
+    whole numbers compared as they are; on a date key, a day written as text
+    ("2026-06-08") stands for the whole day, as pandas reads a partial date."""
+    from porter.rules.construct import _datetime_code
+    parts = rows.const
+    keys = frame.index
+    if len(parts) > len(keys) or row_labels_carried(frame) or frame.index_unnamed:
+        raise ctx.todo("rows chosen by index label: one label or slice per key column holding "
+                       "the labels is ported")
+    import pandas as pd
+    picks: list[tuple[list[Code], bool]] = []  # per level picked: its conditions, a label?
+    for part, key in zip(parts, keys):
+        conditions: list[Code] = []
+        kind = frame.dtype(key)
+        if isinstance(part, slice) and part == slice(None):
+            continue
+        if not isinstance(part, slice):
+            if {str: "str", int: "int"}.get(type(part)) != kind:
+                raise ctx.todo("a label of another type than its key column (or a key of "
+                               "unknown type)")
+            picks.append(([emit.binop(emit.col(key), "==", emit.lit(part))], True))
+            continue
+        if part.step is not None:
+            raise ctx.todo("a slice of labels with a step")
+        if not frame.sorted_by_keys():
+            raise ctx.todo("a slice of labels on rows porter does not know to be sorted by the "
+                           "keys (pandas raises unless they are: sort_index() first)")
+        for bound, op in ((part.start, ">="), (part.stop, "<=")):
+            if bound is None:
+                continue
+            if kind == "datetime" and isinstance(bound, str) and _DAY_TEXT.fullmatch(bound):
+                day = pd.Timestamp(bound)
+                if op == ">=":
+                    conditions.append(emit.binop(emit.col(key), ">=", _datetime_code(day)))
+                else:  # the whole day: before the next one
+                    conditions.append(emit.binop(emit.col(key), "<",
+                                                 _datetime_code(day + pd.Timedelta(days=1))))
+            elif {str: "str", int: "int"}.get(type(bound)) == kind and kind in ("str", "int"):
+                conditions.append(emit.binop(emit.col(key), op, emit.lit(bound)))
+            else:
+                raise ctx.todo("a slice whose ends are not of its key's type (text or whole "
+                               "numbers; a day written as text on a date key)")
+        ctx.lower("a slice of a level on rows holding a missing key: pandas raises (its labels "
+                  "are not sorted then), Polars leaves the row out", 0.95)
+        if conditions:
+            picks.append((conditions, False))
+    if not picks:
+        return frame
+    if not any(label for _, label in picks):
+        # slices only: the rows between their ends, none at all without an error
+        return derive(frame, frame.code.method("filter", *(c for cs, _ in picks for c in cs)),
+                      same_rows=False)
+    # a label no row holds, or one that leaves no row with the picks before it: pandas'
+    # KeyError, checked on the rows (pandas_level_rows)
+    code = emit.call(LEVEL_ROWS_FUNCTION, frame.code.method("collect"), emit.atom(
+        "[" + ", ".join(f"({_all(c).text}, {l})" for c, l in picks) + "]"),
+        emit.atom(repr(parts))).method("lazy")
+    return derive(frame, code, same_rows=False)
+
+
+def _all(conditions: list[Code]) -> Code:
+    code = conditions[0]
+    for other in conditions[1:]:
+        code = emit.binop(code, "&", other)
+    return code
 
 
 def _row_at(frame: Frame, row: "RowPosition", ctx: RuleContext) -> Value:
@@ -489,6 +581,28 @@ def pandas_label_rows(rows, label):
     if not rows.height:
         raise KeyError(label)
     return rows
+'''
+
+
+# df.loc[pd.IndexSlice["a", :]] without pandas: the rows each level's label or slice picks,
+# or pandas' KeyError as MultiIndex.get_locs raises it
+LEVEL_ROWS_FUNCTION = "pandas_level_rows"
+LEVEL_ROWS_DEFINITION = '''\
+def pandas_level_rows(rows, picks, key):
+    """The rows of df.loc[key] of a table labelled by several keys, each level's pick (a
+    label or a slice, as a condition on its key) applied in turn as pandas does: KeyError
+    where a label no row holds, or one that leaves no row with the picks before it (a slice
+    never raises: pandas takes it among the rows picked so far)."""
+    matched = rows.select(
+        *(pick.fill_null(False).sum().alias(f"one{i}") for i, (pick, _) in enumerate(picks)),
+        *(pl.all_horizontal([p.fill_null(False) for p, _ in picks[: i + 1]]).sum().alias(f"all{i}")
+          for i in range(len(picks))),
+    ).row(0)
+    for i, (_, label) in enumerate(picks):
+        one, kept = matched[i], matched[len(picks) + i]
+        if label and (not one or not kept):
+            raise KeyError(key)
+    return rows.filter(*(p for p, _ in picks))
 '''
 
 

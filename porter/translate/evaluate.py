@@ -958,6 +958,18 @@ class Evaluator:
                 mask = key.code if isinstance(key, PandasValue) else handover.to_pandas(key)
                 code = _pandas_names(receiver.of).index(mask)
                 return PandasValue(code, sites=receiver.sites + key.sites + (site,))
+        if isinstance(receiver, Module) and receiver.qualname == "pandas.IndexSlice":
+            # pd.IndexSlice["a", :] is the tuple of what is written between the brackets
+            # ("a", slice(None)): a literal when each part is (the rules that read labels
+            # read it; anywhere else it is pandas' own, written as it is)
+            parts = [self.eval(e.slice.value) if isinstance(e.slice, cst.Index)
+                     else self.eval_slice(e.slice) for e in node.slice]
+            if all(isinstance(p, Opaque) and p.is_const and not p.sites for p in parts) \
+                    and not receiver.sites:
+                consts = tuple(p.const for p in parts)
+                return Opaque(Code(self.source(node)), const=consts if len(consts) > 1
+                              else consts[0], node=node)
+            return self.generic(node)
         if not isinstance(receiver, (Frame, Column, Grouped, Indexer, Accessor, Parts, Resampled,
                                      Indexed)):
             return self.generic(node)

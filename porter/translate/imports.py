@@ -19,7 +19,8 @@ from porter.rules.strings import (
     WHITESPACE_DEFINITION,
 )
 from porter.rules.selection import (
-    LABEL_ROWS_DEFINITION, LABEL_ROWS_FUNCTION, ROW_SUM_DEFINITION, ROW_SUM_FUNCTION,
+    LABEL_ROWS_DEFINITION, LABEL_ROWS_FUNCTION, LEVEL_ROWS_DEFINITION, LEVEL_ROWS_FUNCTION,
+    ROW_SUM_DEFINITION, ROW_SUM_FUNCTION,
     DTYPE_PROBE_CONSTANT, DTYPE_PROBE_DEFINITION, DTYPES_TEXT_DEFINITION, DTYPES_TEXT_FUNCTION,
 )
 from porter.rules.groupby import (
@@ -171,6 +172,7 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (TEXT_ARRAY_FUNCTION, TEXT_ARRAY_DEFINITION),
                                  (DTYPES_TEXT_FUNCTION, DTYPES_TEXT_DEFINITION),
                                  (LABEL_ROWS_FUNCTION, LABEL_ROWS_DEFINITION),
+                                 (LEVEL_ROWS_FUNCTION, LEVEL_ROWS_DEFINITION),
                                  (ROW_SUM_FUNCTION, ROW_SUM_DEFINITION),
                                  (DISTINCT_FUNCTION, DISTINCT_DEFINITION),
                                  (VALUES_FUNCTION, VALUES_DEFINITION)):

@@ -84,6 +84,19 @@ class Frame(Value):
     # (sorted last), where set_index codes it as missing: sort_index and unstack read the two
     # differently, so a hand-over makes the levels as the groupby made them
     levels_with_missing: bool = field(default=False, kw_only=True)
+    # the rows are sorted ascending by all the index keys, as sort_index() leaves them
+    # (pandas' MultiIndex is then lexsorted: its levels can be sliced): the rows token and
+    # each key with its version then (sorted_by_keys); any other rows, keys or values of a
+    # key since, and it no longer holds
+    sorted_rows: tuple[Any, ...] | None = field(default=None, kw_only=True)
+
+    def sorted_mark(self) -> tuple[Any, ...]:
+        """What sorted_rows holds while the rows are sorted by the index keys as they are."""
+        versions = dict(self.versions)
+        return (self.rows, tuple((k, versions.get(k)) for k in self.index))
+
+    def sorted_by_keys(self) -> bool:
+        return self.sorted_rows is not None and self.sorted_rows == self.sorted_mark()
     # a pivot (pivot_table, crosstab, unstack) on an integer key made the columns not named
     # here: pandas labels them with the key's values (2024), Polars names them as text
     # ("2024"); the names here (the index keys, a margin, columns written since) are text in
