@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from pathlib import Path
+import re
 from typing import Any
 
 import polars as pl
@@ -80,6 +81,9 @@ class FileSchema(dict[str, str]):
     # read_csv(skipinitialspace=True): a quote after the spaces that follow a separator, where
     # pandas starts a quoted field and Polars' reader keeps the spaces and the quotes as text
     spaced_quotes: bool = False
+    # read_csv(sep=r"\s+"): a quote in the file, or a data line whose number of fields is not
+    # the header's (see SchemaReader._read_words)
+    words_unsure: bool = False
     # read_csv(true_values=..., false_values=...): the text columns pandas reads as True/False
     # (every value one of them or of pandas' own True/False texts); scanned as text here
     bool_texts: tuple[str, ...] = ()
@@ -132,6 +136,12 @@ def merged(schemas: list[FileSchema]) -> FileSchema | None:
     ends = {s.line_ends for s in schemas}
     found.line_ends = "mixed" if len(ends) > 1 else ends.pop()
     return found
+
+
+# read_csv(sep=r"\s+"): pandas splits each line at runs of spaces and tabs (its C reader's
+# whitespace), never at other white space such as a no-break space
+WHITESPACE_SEPARATOR = r"\s+"
+WORDS = re.compile(r"[^ \t]+")
 
 
 class SchemaReader:
@@ -192,6 +202,8 @@ class SchemaReader:
                 return found
             if ends == "cr":  # the helpers below read it with eol_char="\r" (scan_kwargs)
                 options = {**options, "lineterminator": "\r"}
+        if reader == "csv" and options.get("sep") == WHITESPACE_SEPARATOR:
+            return self._read_words(file, options)
         if reader == "csv" and (options.get("skipinitialspace") or options.get("skiprows_list")):
             return self._read_stripped(file, options)
         if reader == "csv" and isinstance(options.get("nrows"), int):
@@ -204,6 +216,34 @@ class SchemaReader:
                     return None
                 return self._read_file(reader, head, options)
         return self._read_file(reader, file, options)
+
+    def _read_words(self, file: Path, options: dict[str, Any]) -> dict[str, str] | None:
+        """read_csv(sep=r"\\s+"): the schema of the file as pandas reads it, each line's fields
+        the runs of characters other than spaces and tabs (leading ones ignored, blank lines
+        skipped), read from a comma-separated copy. A quote in the file (pandas reads a
+        quoted field with its spaces as one), or a data line with another number of fields
+        than the header (pandas fails, or makes the first field the row label), marks the
+        schema `words_unsure`: the read is a TODO."""
+        import csv
+        import tempfile
+
+        if file.stat().st_size > SAMPLE_SCAN_LIMIT:
+            return None
+        try:
+            text = file.read_text(encoding="utf-8")
+        except (OSError, UnicodeDecodeError):
+            return None
+        rows = [words for line in text.splitlines() if (words := WORDS.findall(line))]
+        if not rows or '"' in text or "'" in text or any(len(r) != len(rows[0]) for r in rows):
+            found = FileSchema()
+            found.words_unsure = True
+            return found
+        rest = {k: v for k, v in options.items() if k != "sep"}
+        with tempfile.TemporaryDirectory() as folder:
+            copy = Path(folder) / "words.csv"
+            with copy.open("w", newline="", encoding="utf-8") as out:
+                csv.writer(out).writerows(rows)
+            return self._read_file("csv", copy, rest)
 
     def _read_stripped(self, file: Path, options: dict[str, Any]) -> dict[str, str] | None:
         """read_csv(skipinitialspace=True), or skiprows= a list of rows: the schema of the

@@ -22,7 +22,7 @@ from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_DURATIONS_CONST
                                      POLARS_CSV_COMPRESSION, compression_of, is_number, is_url,
                                      na_value_numbers, na_value_texts,
                                      written_compression)
-from porter.analysis.schema import PADDING, PANDAS_FALSE, PANDAS_TRUE
+from porter.analysis.schema import PADDING, PANDAS_FALSE, PANDAS_TRUE, WHITESPACE_SEPARATOR
 from porter.rules.datetimes import GUESS_DAYFIRST_REASON, GUESS_REASON, Strptime, formatted_parse, guessed_parse, strptime_port
 from porter.rules.strings import LIST_STR, list_repr
 from porter.rules.ops import MASKED_DTYPES
@@ -121,7 +121,9 @@ def _read_modern_csv(call: PandasCall, ctx: RuleContext) -> Value:
     compression= gzip / zstd / infer. With --data: header=None without names (the columns
     "0", "1", ... as pandas' integer labels), thousands=, skipinitialspace=True, a list of
     skiprows, true_values / false_values and a usecols function (read as text, then cast to
-    the types pandas infers, read from the sample).
+    the types pandas infers, read from the sample); sep=r"\\s+" (each line split at runs of
+    spaces and tabs by pl.scan_lines and str.extract_all, then cast; with na_values= only,
+    and where the sample has no quotes and the same number of fields on every line).
     Caveats: converters, encodings
     other than UTF-8, latin-1 and cp1252 (read eagerly by pl.read_csv(encoding=...).lazy()),
     on_bad_lines="skip"/"warn" (pandas leaves out a row
@@ -189,7 +191,14 @@ def _read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     options: dict[str, Any] = {}
     kwargs: dict[str, object] = {}
     sep = call.const("sep", None, None, kinds=(str,)) or call.const("delimiter", None, None, kinds=(str,))
-    if sep is not None:
+    words = sep == WHITESPACE_SEPARATOR  # fields split at runs of spaces and tabs
+    if words:
+        others = set(call.kwargs) - {"sep", "delimiter", "na_values", *READ_CSV_IGNORED}
+        if others or len(call.args) > 1:
+            raise ctx.todo(f"sep={sep!r} beside {', '.join(sorted(others)) or 'more arguments'}: "
+                           "porter splits a file at runs of spaces with na_values= only")
+        options["sep"] = sep
+    elif sep is not None:
         if len(sep) != 1:
             raise ctx.todo(f"separator {sep!r} is not a single character (pandas reads it as a regex)")
         if sep != ",":
@@ -471,6 +480,12 @@ def _read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                        "as object (a sum is 0, max and mean NaN, a concat with it makes the "
                        "other frames' columns object); Polars has no such columns")
     exact = getattr(schema, "polars", None)
+    if words and (not exact or "" in exact or getattr(schema, "partial", False)
+                  or not all(t in TEXT_CASTS for t in exact.values())):
+        raise ctx.todo(f"sep={sep!r}: porter splits the lines at runs of spaces and tabs itself "
+                       "and casts the columns to the types pandas reads, which it knows with "
+                       "--data only (columns of numbers or text, the same number of fields on "
+                       "every line, no quotes)")
     if exact and "" not in exact:
         # --data gave the file: the scan is told the types porter read (inferring them over
         # the whole file again would read it twice). They are matched to the header by name;
@@ -498,7 +513,13 @@ def _read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         if all(t.text in text_casts for t in types.values()) and decimal == ".":
             # (a cast of "1,5" to Float64 fails: a decimal comma is read by the typed scan)
             code = _scan_as_text(source.code, kwargs, types, bool(getattr(schema, "partial", False)),
-                                 decoded, strip_start=skip_spaces, dropped=dropped)
+                                 decoded, strip_start=skip_spaces, dropped=dropped,
+                                 words=list(exact) if words else None)
+            if words:
+                ctx.lower("sep=r\"\\s+\": each line is split at runs of spaces and tabs; a "
+                          "line with more fields than the header is cut to the header's (pandas "
+                          "fails on it), and a quoted field holding spaces is split (--data "
+                          "showed no quotes)", 0.95)
         else:
             code = _scan(source.code, kwargs, decoded)
     else:
@@ -721,7 +742,7 @@ def _scan(source: Code, kwargs: dict[str, Any], encoding: str | None) -> Code:
 
 def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], partial: bool,
                   encoding: str | None = None, strip_start: bool = False,
-                  dropped: list[int] | None = None) -> Code:
+                  dropped: list[int] | None = None, words: list[str] | None = None) -> Code:
     """A scan of every column as text, pandas' missing-value tokens made missing, and a cast to
     the types porter read from --data.
 
@@ -732,7 +753,7 @@ def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], 
     the typed scan's schema_overrides ignore the ones it lacks."""
     options = {k: v for k, v in kwargs.items() if k not in ("schema_overrides", "null_values")}
     nulls = kwargs.get("null_values")  # none with keep_default_na=False and no na_values
-    code = _scan(source, options, encoding)
+    code = _scan(source, options, encoding) if words is None else _scan_words(source, words)
     if dropped:
         # read_csv(skiprows=[...]): the data rows pandas skips, counted as the scan reads them
         # (before blank lines are left out: pandas counts them too)
@@ -764,6 +785,23 @@ def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], 
         casts = {emit.call("pl.selectors.by_name", *columns, require_all=False): emit.atom(kind)
                  for kind, columns in by_type.items()}
     return code.method("cast", casts) if casts else code
+
+
+def _scan_words(source: Code, names: list[str]) -> Code:
+    """read_csv(sep=r"\\s+"): the file's lines, each split into the runs of characters other
+    than spaces and tabs (pandas' whitespace; leading ones ignored), blank lines skipped, the
+    header line left out, and the fields named by it (as --data showed it) in text columns."""
+    line = emit.col("line")
+    return (emit.pl("scan_lines", source)
+            .method("select", line.attr("str").method("extract_all", emit.atom(WORD_PATTERN)))
+            .method("filter", emit.binop(line.attr("list").method("len"), ">", 0))
+            .method("slice", 1)
+            .method("select", line.attr("list").method("to_struct", fields=names)
+                    .attr("struct").method("unnest")))
+
+
+# a field of a file read with sep=r"\s+": what lies between runs of spaces and tabs
+WORD_PATTERN = 'r"[^ \\t]+"'
 
 
 def _numbers_missing(code: Code, numbers: list[float], dtypes: dict[str, str] | None,
