@@ -39,6 +39,12 @@ PORTS = [
     pytest.param('result = pd.Series([1, None, 3], name="kg").to_frame()', id="Series with a name"),
     pytest.param('s = pd.Series(["x", "y", None])\nresult = s.str.upper().to_frame()', id="Series without a name"),
     pytest.param('result = pd.Series([1.5, 2.5, np.nan]).sum()', id="Series reduction"),
+    pytest.param('result = pd.Series({"a": 1, "b": 2, "Ü": None}).reset_index()',
+                 id="Series of a dict: its keys are the labels"),
+    pytest.param('s = pd.Series({"x": 1.5, "y": np.nan}, name="w")\nresult = (s * 2).to_frame().reset_index()',
+                 id="Series of a dict, named"),
+    pytest.param('result = pd.Series({"x": 3, "y": 1}).sort_values().reset_index()',
+                 id="Series of a dict, sorted"),
 ]
 
 

@@ -357,8 +357,8 @@ def series(call: PandasCall, ctx: RuleContext) -> Value:
     is written "0", the label pandas' to_frame gives it).
     A dict or list written out whose values are computed at run time (`{"a": df["a"].sum()}`)
     is built by pandas from the values porter computes (a hand-over: its labels are the keys).
-    index= of distinct texts: the labels in the key column "index", held as the Series' unnamed
-    index.
+    index= of distinct texts, or a dict written out with text keys: the labels in the key
+    column "index", held as the Series' unnamed index.
     Caveats: other index=, dtype= and other values computed at run time are TODOs.
     """
     ctx.reject_unknown(call, "data", "name", "copy", "index", "dtype", positional=3)
@@ -377,6 +377,11 @@ def series(call: PandasCall, ctx: RuleContext) -> Value:
         # pandas builds the Series (its labels are the keys) from the values porter computes
         ctx.handover = True
         return PandasValue(_rewritten_call("pd.Series", call, ctx))
+    if isinstance(data, Opaque) and data.is_const and isinstance(data.const, dict) \
+            and labels is None and data.const and all(isinstance(k, str) for k in data.const):
+        # pd.Series({"a": 1, "b": 2}): the keys are the labels, as index=[...] gives them
+        labels = list(data.const)
+        data = replace(data, const=list(data.const.values()))
     if not (isinstance(data, Opaque) and data.is_const and isinstance(data.const, (list, tuple))):
         raise ctx.todo("a Series from values computed at run time")
     values = list(data.const)
