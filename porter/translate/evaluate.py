@@ -1302,6 +1302,14 @@ class Evaluator:
                             "numbers after the filter or sort): "
                             + ("a plot of one Series draws them as its x values" if draws else
                                "what it returns is labelled by them"))
+            if _values_array(value, name, reads_labels, whole):
+                # matplotlib's drawing functions and scikit-learn's models and metrics make an
+                # array of a Series' values (Series.to_numpy()) and read neither its labels nor
+                # its name; a column of numbers is the same array from Polars (int64, float64,
+                # a missing value nan: an int column with one is float64 in pandas too)
+                code = handover.collected(value).method("to_numpy")
+                message = message.replace(".collect().to_pandas()",
+                                          ".collect().to_series().to_numpy() (its values)")
             site = SiteDraft("handover.plotting" if draws else "handover.library",
                              "plotting" if draws else "library", "handover", confidence, message,
                              line, end_line)
@@ -1323,6 +1331,17 @@ class Evaluator:
             # built on a value handed over to pandas: a pandas object, never a plain scalar
             return PandasValue(Code(text, precedence(node)), sites=tuple(rewriter.sites))
         return Opaque(Code(text, precedence(node)), sites=tuple(rewriter.sites))
+
+
+def _values_array(value: Value, library_name: str, reads_labels: bool, whole: Code | None) -> bool:
+    """Whether a Series given to a plotting or modelling call may go over as the numpy array of
+    its values: a column of numbers (int or float; not one of pandas' nullable integers, whose
+    array holds <NA>) of a frame without row labels of its own, given to matplotlib or
+    scikit-learn where they read only its values."""
+    return isinstance(value, Column) and library_name in ("matplotlib", "sklearn") \
+        and not reads_labels and whole is None and value.dtype in ("int", "float") \
+        and not value.nullable_int and not value.null_is_false and not value.frame.index \
+        and not value.index_values and getattr(value, "pandas", None) is None
 
 
 def _model_array(node: cst.BaseExpression) -> bool:
