@@ -11,7 +11,7 @@ import traceback
 
 import libcst as cst
 
-from porter.analysis.consumers import plotting_arguments
+from porter.analysis.consumers import plotting_arguments, seaborn_data_columns
 from porter.analysis.frame_lists import frame_lists
 from porter.analysis.returned_frames import return_changed_frames
 from porter.mapping import MappingTable, load_table
@@ -80,6 +80,7 @@ def convert_source(text: str, *, path: str | None = None, options: Options | Non
         infinities_possible=bool(INFINITY_HINTS.search(text)),
         categories_possible=bool(CATEGORY_HINTS.search(text)),
         plotted=plotting_arguments(module),
+        seaborn_columns=seaborn_data_columns(module),
         frame_lists=frame_lists(module),
     )
     try:

@@ -78,7 +78,7 @@ PORTS = [
                     .sort("k").collect().to_pandas().set_index("k").plot.barh()''',
                  "frame.plot", id="grouped frame keeps its index on the x axis"),
     pytest.param('df.hist(column="v", bins=3)',
-                 'df.collect().to_pandas().hist(column="v", bins=3)',
+                 'df.select("v").collect().to_pandas().hist(column="v", bins=3)',
                  "frame.hist", id="df.hist"),
     pytest.param('ax = None\ndf.boxplot(column="v", by="k", ax=ax)',
                  'df.collect().to_pandas().boxplot(column="v", by="k", ax=ax)',
@@ -175,9 +175,15 @@ def _seen(data: pd.DataFrame | pd.Series, **_: object) -> pd.DataFrame:
     return frame.reset_index()
 
 
-def _seen_values(data: pd.DataFrame | pd.Series, **_: object) -> pd.DataFrame:
-    """What pandas was asked to draw, values only: histograms and box plots ignore labels."""
+def _seen_values(data: pd.DataFrame | pd.Series, column: object = None, by: object = None,
+                 **_: object) -> pd.DataFrame:
+    """What pandas was asked to draw, values only: histograms and box plots ignore labels.
+    With column= (and by=) pandas reads those columns of the frame, nothing else."""
     frame = data.to_frame() if isinstance(data, pd.Series) else data
+    if column is not None and isinstance(data, pd.DataFrame):
+        named = [*([column] if isinstance(column, str) else column),
+                 *([by] if isinstance(by, str) else by or [])]
+        frame = frame[named]
     return frame.reset_index(drop=True)
 
 

@@ -63,6 +63,7 @@ class _Collector(cst.CSTVisitor):
     def __init__(self) -> None:
         self.names: dict[str, str] = {}  # local name -> what it stands for ("matplotlib.pyplot")
         self.arguments: dict[int, tuple[str, bool]] = {}
+        self.columns: dict[int, tuple[str, ...]] = {}  # seaborn's data= frame: the names it reads
 
     def visit_Import(self, node: cst.Import) -> None:
         for alias in node.names:
@@ -105,6 +106,10 @@ class _Collector(cst.CSTVisitor):
         reads_labels = _reads_labels(callee, node)
         for arg in node.args:
             self.arguments[id(arg.value)] = (callee, reads_labels(arg))
+        named = _seaborn_names(callee, node)
+        if named is not None:
+            data = next(a for a in node.args if a.keyword is not None and a.keyword.value == "data")
+            self.columns[id(data.value)] = named
 
     def resolve(self, func: cst.BaseExpression) -> str | None:
         """`plt.plot` -> "matplotlib.pyplot.plot"; `ax.bar` -> "matplotlib figure.bar"."""
@@ -154,6 +159,45 @@ def _reads_labels(callee: str, call: cst.Call):  # type: ignore[no-untyped-def]
     return lambda arg: True
 
 
+def _seaborn_names(callee: str, call: cst.Call) -> tuple[str, ...] | None:
+    """The texts a seaborn call given `data=` and its columns by name (x=, y=, hue=, ...) may
+    read as columns of that frame: every text written among its keywords (x="kg", hue="site",
+    vars=["a", "b"]; a text that names no column, marker="o", is read as no column). None where
+    a keyword other than ax= is given something else than texts, numbers, True/False or None
+    (x=col: a name porter does not follow), or seaborn reads the frame without x= (wide form)."""
+    if not callee.startswith("seaborn"):
+        return None
+    keywords = {a.keyword.value: a.value for a in call.args if a.keyword is not None}
+    if "data" not in keywords or "x" not in keywords \
+            or any(a.keyword is None or a.star for a in call.args):
+        return None
+    texts: list[str] = []
+
+    def literal(node: cst.BaseExpression) -> bool:
+        if isinstance(node, cst.SimpleString):
+            value = node.evaluated_value
+            if isinstance(value, str):
+                texts.append(value)
+                return True
+            return False
+        if isinstance(node, (cst.Integer, cst.Float)):
+            return True
+        if isinstance(node, cst.Name):
+            return node.value in ("True", "False", "None")
+        if isinstance(node, cst.UnaryOperation) and isinstance(node.operator, cst.Minus):
+            return isinstance(node.expression, (cst.Integer, cst.Float))
+        if isinstance(node, (cst.List, cst.Tuple)):
+            return all(literal(e.value) for e in node.elements)
+        return False
+
+    for name, value in keywords.items():
+        if name in ("data", "ax"):
+            continue
+        if not literal(value):
+            return None
+    return tuple(dict.fromkeys(texts))
+
+
 def _names(target: cst.BaseExpression) -> list[str]:
     if isinstance(target, cst.Name):
         return [target.value]
@@ -168,3 +212,11 @@ def plotting_arguments(module: cst.Module) -> dict[int, tuple[str, bool]]:
     collector = _Collector()
     module.visit(collector)
     return collector.arguments
+
+
+def seaborn_data_columns(module: cst.Module) -> dict[int, tuple[str, ...]]:
+    """The frames given to seaborn as `data=` (by node id) with the columns named in the call
+    (x=, y=, hue=, ...), which are all seaborn reads of them (see _seaborn_names)."""
+    collector = _Collector()
+    module.visit(collector)
+    return collector.columns

@@ -12,6 +12,8 @@ it out, by a function written once into the converted script (TEXT_DEFINITION).
 
 from __future__ import annotations
 
+from dataclasses import replace
+
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
@@ -132,9 +134,46 @@ def plot_method(call: PandasCall, ctx: RuleContext) -> Value:
     """df.hist(...) / df.boxplot(...) / s.hist(...) -> on df.collect().to_pandas().
 
     Handles: the same arguments, pandas values among them handed over as well; these plots
-    draw values only, so row labels do not matter.
+    draw values only, so row labels do not matter. With column= (and by=) written out, only
+    those columns go over to pandas: pandas reads nothing else of the frame then.
     """
+    named = _named_columns(call)
+    if named is not None:
+        frame = call.receiver
+        assert isinstance(frame, Frame)
+        kept = tuple(c for c in frame.columns or () if c in named)
+        chosen = replace(frame, code=frame.code.method("select", *kept), columns=kept,
+                         dtypes=tuple((c, t) for c, t in frame.dtypes if c in kept))
+        kwargs = {k: _argument(v, ctx) for k, v in call.kwargs.items()}
+        return PandasValue(to_pandas(chosen).method(call.name, **kwargs))
     return PandasValue(_same_call(call, ctx))
+
+
+def _named_columns(call: PandasCall) -> set[str] | None:
+    """The columns df.hist(column=..., by=...) / df.boxplot(column=..., by=...) reads, when
+    both are written out as texts naming columns of a frame whose columns are known (without
+    row labels of its own), and the call is given nothing else from pandas; None otherwise."""
+    frame = call.receiver
+    if call.name not in ("hist", "boxplot") or not isinstance(frame, Frame) or call.args \
+            or frame.columns is None or frame.index or frame.value_levels or frame.column_pairs:
+        return None
+    named: set[str] = set()
+    for option in ("column", "by"):
+        value = call.kwargs.get(option)
+        if value is None:
+            if option == "column":
+                return None  # every number column is drawn
+            continue
+        if not (isinstance(value, Opaque) and value.is_const):
+            return None
+        texts = list(value.const) if isinstance(value.const, (list, tuple)) else [value.const]
+        if not texts or not all(isinstance(t, str) and t in frame.columns for t in texts):
+            return None
+        named.update(texts)
+    if any(isinstance(v, PANDAS_KINDS) for v in call.kwargs.values()) \
+            or set(frame.columns) <= named:
+        return None
+    return named
 
 
 @rule("frame.to_excel", "frame.to_sql")

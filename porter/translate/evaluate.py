@@ -171,6 +171,8 @@ class Services:
     # arguments of calls into a plotting library (matplotlib, seaborn), by node id, with the
     # function called: a pandas value given there is handed over on purpose
     plotted: dict[int, tuple[str, bool]] = field(default_factory=dict)
+    # frames given to seaborn as data= (by node id): the columns the call names, all it reads
+    seaborn_columns: dict[int, tuple[str, ...]] = field(default_factory=dict)
     # lists the script fills with frames by append for pd.concat (analysis.frame_lists), those
     # found to take something else (kept over all passes: it only grows), and the frames
     # appended to each
@@ -1314,6 +1316,29 @@ class Evaluator:
                             "numbers after the filter or sort): "
                             + ("a plot of one Series draws them as its x values" if draws else
                                "what it returns is labelled by them"))
+            named = self.services.seaborn_columns.get(id(node))
+            if isinstance(value, Frame) and named is not None and whole is None \
+                    and not reads_labels and not value.index and value.columns is not None \
+                    and not value.value_levels and not value.column_pairs \
+                    and any(c in value.columns for c in named) \
+                    and not set(value.columns) <= set(named):
+                # seaborn reads the columns named in the call from its data= frame, nothing
+                # else (not its row labels: see consumers._reads_labels): only they go over
+                kept = tuple(c for c in value.columns if c in named)
+                code = handover.to_pandas(replace(
+                    value, code=value.code.method("select", *kept), columns=kept,
+                    dtypes=tuple((c, t) for c, t in value.dtypes if c in kept)))
+                message = message.replace(".collect().to_pandas()",
+                                          f".select(<the {len(kept)} columns it names>)"
+                                          ".collect().to_pandas()")
+            if _values_array(value, name, reads_labels, whole):
+                # matplotlib's drawing functions and scikit-learn's models and metrics make an
+                # array of a Series' values (Series.to_numpy()) and read neither its labels nor
+                # its name; a column of numbers is the same array from Polars (int64, float64,
+                # a missing value nan: an int column with one is float64 in pandas too)
+                code = handover.collected(value).method("to_numpy")
+                message = message.replace(".collect().to_pandas()",
+                                          ".collect().to_series().to_numpy() (its values)")
             site = SiteDraft("handover.plotting" if draws else "handover.library",
                              "plotting" if draws else "library", "handover", confidence, message,
                              line, end_line)
@@ -1335,6 +1360,17 @@ class Evaluator:
             # built on a value handed over to pandas: a pandas object, never a plain scalar
             return PandasValue(Code(text, precedence(node)), sites=tuple(rewriter.sites))
         return Opaque(Code(text, precedence(node)), sites=tuple(rewriter.sites))
+
+
+def _values_array(value: Value, library_name: str, reads_labels: bool, whole: Code | None) -> bool:
+    """Whether a Series given to a plotting or modelling call may go over as the numpy array of
+    its values: a column of numbers (int or float; not one of pandas' nullable integers, whose
+    array holds <NA>) of a frame without row labels of its own, given to matplotlib or
+    scikit-learn where they read only its values."""
+    return isinstance(value, Column) and library_name in ("matplotlib", "sklearn") \
+        and not reads_labels and whole is None and value.dtype in ("int", "float") \
+        and not value.nullable_int and not value.null_is_false and not value.frame.index \
+        and not value.index_values and getattr(value, "pandas", None) is None
 
 
 def _model_array(node: cst.BaseExpression) -> bool:
