@@ -19,7 +19,7 @@ from porter.rules.totals import pandas_median, pandas_reduce
 from porter.rules.ops import float32_possible, small_ints_possible
 from porter.rules.io_options import (
     CATEGORY_COUNTS_FUNCTION, DATES_AS_TEXT_FUNCTION, DIVIDE_FUNCTION, MARGINS_FUNCTION,
-    QUANTILE_FUNCTION, UNSTACKED_FUNCTION,
+    PERCENTILES_FUNCTION, QUANTILE_FUNCTION, UNSTACKED_FUNCTION,
 )
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, check_same_rows, column_names, column_of, derive,
@@ -2137,9 +2137,9 @@ def describe(call: PandasCall, ctx: RuleContext) -> Value:
         ("mean", pandas_reduce(numeric.method("cast", as_float), "mean")),
         ("std", pandas_reduce(numeric.method("cast", as_float), "std")),
         ("min", numeric.method("min").method("cast", as_float)),
-        # numpy's interpolation to the last bit, and the sign of a zero (pandas_quantile):
-        # the three quartiles in one pass over each column, a row each
-        (QUARTILES, emit.call(QUANTILE_FUNCTION, numeric, list(QUARTILE_VALUES))),
+        # numpy's percentiles, as pandas computes them: the three quartiles in one pass over
+        # each column, a row each (pandas_percentiles)
+        (QUARTILES, emit.call(PERCENTILES_FUNCTION, numeric, list(QUARTILE_VALUES))),
         ("max", numeric.method("max").method("cast", as_float)),
     ]
     # pandas keeps the statistic names in an unnamed index, which reset_index() names "index"
@@ -2194,9 +2194,9 @@ def series_describe(call: PandasCall, ctx: RuleContext) -> Value:
         ("mean", pandas_reduce(values.method("cast", as_float), "mean")),
         ("std", pandas_reduce(values.method("cast", as_float), "std")),
         ("min", values.method("min").method("cast", as_float)),
-        # numpy's interpolation to the last bit, and the sign of a zero (pandas_quantile):
-        # the three quartiles in one pass, a row each
-        (QUARTILES, emit.call(QUANTILE_FUNCTION, values, list(QUARTILE_VALUES))),
+        # numpy's percentiles, as pandas computes them: the three quartiles in one pass, a
+        # row each (pandas_percentiles)
+        (QUARTILES, emit.call(PERCENTILES_FUNCTION, values, list(QUARTILE_VALUES))),
         ("max", values.method("max").method("cast", as_float)),
     ]
     # pandas labels the statistics in an unnamed index, which reset_index() names "index"

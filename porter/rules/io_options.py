@@ -256,12 +256,9 @@ def pandas_quantile(column, q):
     \"\"\"The q quantile of the column's values as pandas computes it (numpy's linear
     interpolation a + (b - a) * t, to the last binary digit and the sign of a zero: Polars'
     quantile can be one digit off, which moves a value sitting on a bin's edge into the next
-    bin, and returns -0.0 where numpy's sum gives 0.0). q may be a list of quantiles: one
-    row each, the values around every position found in one pass.\"\"\"
-    many = isinstance(q, list)
+    bin, and returns -0.0 where numpy's sum gives 0.0).\"\"\"
     count = column.count()
-    qs = pl.lit(pl.Series(q, dtype=pl.Float64)) if many else q
-    position = (count.cast(pl.Float64) - 1) * qs
+    position = (count.cast(pl.Float64) - 1) * q
     below = position.floor().cast(pl.Int64)
     last = count.cast(pl.Int64) - 1
     # numpy at the last value (q=1, or one value) takes it twice with weight position + 1,
@@ -271,8 +268,6 @@ def pandas_quantile(column, q):
     # it (the same value where the position falls on one)
     a = column.drop_nulls().quantile(q, "lower")
     b = column.drop_nulls().quantile(q, "higher")
-    if many:
-        a, b = a.explode(), b.explode()
     # where the position falls on a value numpy also reads the next one: NaN when that one
     # is inf or the value itself is -inf (inf * 0)
     infinite = ((column == float("inf")).sum() >= last - below) \\
@@ -282,6 +277,26 @@ def pandas_quantile(column, q):
         .when(t >= 0.5).then(b - (b - a) * (1 - t))
         .otherwise(a + (b - a) * t)
     )
+"""
+
+# A function, defined once at the top of a converted script, that computes describe()'s
+# quartiles as pandas does: numpy's percentile of each column's values, one pass for all three
+# (an expression of Polars' lower and higher quantiles computes each of them several times).
+PERCENTILES_FUNCTION = "pandas_percentiles"
+PERCENTILES_DEFINITION = """\
+def pandas_percentiles(column, qs):
+    \"\"\"The quantiles qs of the column's values as pandas computes them: numpy's percentile
+    of the values present (linear interpolation, to the last binary digit and the sign of a
+    zero), a row each; missing where the column holds no value.\"\"\"
+    import numpy as np
+
+    def percentiles(values):
+        present = values.drop_nulls().cast(pl.Float64).to_numpy()
+        if not len(present):
+            return pl.Series([None] * len(qs), dtype=pl.Float64)
+        return pl.Series(np.percentile(present, [q * 100 for q in qs]), dtype=pl.Float64)
+
+    return column.map_batches(percentiles, return_dtype=pl.Float64)
 """
 
 # A function, defined once at the top of a converted script, that gives a pivoted table the
