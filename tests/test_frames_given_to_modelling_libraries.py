@@ -91,3 +91,41 @@ warm = df[df["temp"] > 10]
 train, test = train_test_split(warm, test_size=0.25, random_state=0)
 result = test.reset_index()
 """, data_dir=".")
+
+
+ARRAYS_PUT_BACK = {
+    "cluster labels as a column": """
+        from sklearn.cluster import KMeans
+        X = StandardScaler().fit_transform(df[["temp", "moisture"]])
+        df["cluster"] = KMeans(n_clusters=2, n_init=10, random_state=0).fit_predict(X)
+        result = df
+    """,
+    "two components of a 2-D array": """
+        from sklearn.decomposition import PCA
+        pcs = PCA(n_components=2, random_state=0).fit_transform(df[["temp", "moisture", "rate"]])
+        df["pc1"] = pcs[:, 0]
+        df["pc2"] = pcs[:, 1]
+        result = df.round(9)
+    """,
+    "predictions of a filtered frame": """
+        warm = df[df["temp"] > 12].copy()
+        model = LinearRegression().fit(warm[["temp"]], warm["rate"])
+        warm["fit"] = model.predict(warm[["temp"]])
+        result = warm.round(9).reset_index()
+    """,
+    "scaled columns written back": """
+        scaler = StandardScaler()
+        df["temp_z"] = scaler.fit_transform(df[["temp"]])[:, 0]
+        result = df.round(9)
+    """,
+}
+
+
+@pytest.mark.parametrize("body", list(ARRAYS_PUT_BACK.values()), ids=list(ARRAYS_PUT_BACK))
+def test_arrays_a_model_gives_back_are_columns_by_position(body: str) -> None:
+    # a model's predictions, a transform's rows and a column of a 2-D array are numpy arrays:
+    # pandas places them by position, as pl.Series in with_columns does; the frame stays Polars
+    import textwrap
+    result = differential(HEAD + textwrap.dedent(body), data_dir=".")
+    assert not result.todos, [s.message for s in result.sites if s.status == "todo"]
+    assert "pl.Series(" in result.converted_text

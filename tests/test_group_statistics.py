@@ -235,14 +235,20 @@ def test_group_skew_todo() -> None:
 
 @pytest.mark.parametrize("snippet", [
     'result = df["qty"].value_counts(bins=3)',
-    'result = df["n"].value_counts(bins=[0, 2, 9], normalize=True)',
     'result = df.groupby("shop")["n"].value_counts(bins=[0, 4, 9])',
 ])
 def test_value_counts_bins_todo_says_why(snippet: str) -> None:
-    # Interval labels computed from the data and rounded for display: a TODO with the reason,
-    # the call kept on pandas and giving pandas' result
+    # Interval labels computed from the data and rounded for display (a number of bins), or
+    # per group: a TODO with the reason, the call kept on pandas and giving pandas' result
     result = differential(FRAME + snippet + "\n")
-    assert "value_counts: bins: pandas counts pd.cut" in result.converted_text
+    assert "TODO(porter): series.value_counts: bins" in result.converted_text \
+        or "TODO(porter): groupby.value_counts" in result.converted_text, result.converted_text
+
+
+def test_value_counts_of_given_edges_writes_pandas_labels(tmp_path) -> None:
+    # bins given as edges: the counts labelled by pandas' interval texts, as pandas writes them
+    same_text(FRAME + 'result = df["n"].value_counts(bins=[0, 2, 9], normalize=True)\n'
+              'result.to_csv("counts.csv")\n', tmp_path)
 
 
 def test_value_counts_bins_none_is_no_bins() -> None:

@@ -51,8 +51,36 @@ def test_join_on_the_index_matches_pandas(source: str) -> None:
     assert not [s for s in result.sites if s.status == "todo"], result.converted_text
 
 
+OUTER_AND_SERIES = {
+    "outer: the labels of both sorted, a missing one last, a repeated right label": (
+        'result = per.join(berths.set_index("berth"), how="outer").reset_index()'),
+    "outer of two groupby tables: ints float where a side lacks the label": (
+        'lengths = berths.groupby("berth").agg(boats=("owner", "count"), length_m=("length_m", "sum"))\n'
+        'p = log.groupby("berth").agg(visits=("hours", "count"), fee=("fee", "sum"))\n'
+        'result = p.join(lengths, how="outer").reset_index()'),
+    "outer where every label matches: ints stay int": (
+        'a = log.groupby("berth").agg(visits=("hours", "count"))\n'
+        'b = log.groupby("berth").agg(hours=("hours", "sum"))\n'
+        'result = a.join(b, how="outer").reset_index()'),
+    "a named Series labelled by the key, left": (
+        'total = berths.groupby("berth")["length_m"].sum()\n'
+        'result = per.join(total).reset_index()'),
+    "a named Series of a sorted table, outer": (
+        'wide = berths.groupby("berth")[["length_m"]].sum().sort_values("length_m", ascending=False)\n'
+        'p = log.groupby("berth").agg(visits=("hours", "count"))\n'
+        'j = p.join(wide["length_m"], how="outer")\n'
+        'j["length_m"] = j["length_m"].fillna(0)\n'
+        'result = j.rename_axis("where").reset_index()'),
+}
+
+
+@pytest.mark.parametrize("source", list(OUTER_AND_SERIES.values()), ids=list(OUTER_AND_SERIES))
+def test_outer_joins_and_series_on_the_index_match_pandas(source: str) -> None:
+    result = differential(HEAD + source + "\n")
+    assert not [s for s in result.sites if s.status == "todo"], result.converted_text
+
+
 @pytest.mark.parametrize("source", [
-    'result = per.join(berths.set_index("berth"), how="outer").reset_index()',
     'result = per.join(berths.set_index("berth"), how="right").reset_index()',
     'result = per.join(berths.set_index("berth"), rsuffix="_b").reset_index()',
 ])

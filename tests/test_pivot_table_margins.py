@@ -85,6 +85,12 @@ PIVOTS = [
     # no row left: the empty table pandas gives
     'result = log[log["litres"] > 100].pivot_table(index="keeper", columns="station", '
     'values="litres", aggfunc="sum", fill_value=0, margins=True)',
+    # floats added as pandas adds them (tests/test_pivot_margins_of_floats.py writes the digits)
+    'result = log.pivot_table(index="keeper", columns="station", values="gallons", '
+    'aggfunc="sum", fill_value=0, margins=True)',
+    # several text index keys: the total row holds the name, then ""
+    'result = log.pivot_table(index=["station", "keeper"], columns="month", values="litres", '
+    'aggfunc="sum", fill_value=0, margins=True)',
     # a filter before, and the table put back with reset_index
     'kept = log[log["litres"] > 4]\n'
     'result = kept.pivot_table(index="station", columns="month", values="litres", aggfunc="sum", '
@@ -127,14 +133,14 @@ def test_a_conflicting_margins_name_raises_as_in_pandas(body: str, data: Path) -
 
 
 @pytest.mark.parametrize("body,reason", [
-    # pandas adds floats in its own order
+    # pandas' median of each row and column is not computed here
     ('result = log.pivot_table(index="keeper", columns="station", values="gallons", '
-     'aggfunc="sum", fill_value=0, margins=True)', "whole numbers"),
+     'aggfunc="median", fill_value=0, margins=True)', "median"),
     # the total row's label cannot go into an int key
     ('result = log.pivot_table(index="wicks", columns="station", values="litres", '
      'aggfunc="sum", fill_value=0, margins=True)', "text"),
-    ('result = log.pivot_table(index=["station", "keeper"], columns="month", values="litres", '
-     'aggfunc="sum", fill_value=0, margins=True)', "several index keys"),
+    ('result = log.pivot_table(index=["station", "wicks"], columns="month", values="litres", '
+     'aggfunc="sum", fill_value=0, margins=True)', "text"),
 ])
 def test_margins_todo(body: str, reason: str, data: Path) -> None:
     result = convert(HEAD + body + "\n", data_dir=str(data))

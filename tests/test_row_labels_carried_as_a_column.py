@@ -140,3 +140,24 @@ def test_labels_of_a_grouped_frame_after_a_sort_stay_polars(body: str) -> None:
     result = differential(HEAD + body, data_dir=".")
     assert "frame.labels" not in keys(result)
     assert ".to_pandas()" not in result.converted_text
+
+
+CHAINS = {
+    "read and sorted in one statement": (
+        'left = pd.read_csv("crossings.csv").sort_values("cars", ascending=False)\n'
+        'result = left.reset_index()\n'),
+    "read, filtered and sorted": (
+        'left = pd.read_csv("crossings.csv")[lambda d: d["cars"] > 0].sort_values("fare")\n'
+        'result = left.reset_index()\n'),
+    "the label of the largest": (
+        'left = pd.read_csv("crossings.csv").sort_values("boat")\n'
+        'result = left.loc[left["cars"].idxmax(), "boat"]\n'),
+}
+
+
+@pytest.mark.parametrize("with_data", [True, False], ids=["with --data", "without --data"])
+@pytest.mark.parametrize("body", list(CHAINS.values()), ids=list(CHAINS))
+def test_labels_of_a_frame_read_and_reordered_in_one_chain(body: str, with_data: bool) -> None:
+    # the labels are numbered where the chain starts (with --data), or pandas makes the frame
+    # (without: the columns are not known); the hand-over had read them as 0..n-1 again
+    differential('import pandas as pd\n' + body, **({"data_dir": "."} if with_data else {}))

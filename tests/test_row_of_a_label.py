@@ -99,11 +99,37 @@ def test_the_row_of_a_label_todo(body: str, reason: str, data: Path) -> None:
     assert any(reason in s.message for s in result.todos), [s.message for s in result.todos]
 
 
-def test_a_printed_row_is_laid_out_one_step_per_line(data: Path) -> None:
-    # print(row) of a long chain: broken before each step, .loc["label"] the last, as the
-    # same chain assigned to a name is
+def test_a_row_handed_to_pandas_is_laid_out_one_step_per_line(data: Path) -> None:
+    # a long chain is broken before each step, .loc["label"] the last
     source = HEAD + ('b = pd.read_csv("locks.csv", index_col="boat")\n'
-                     'print(b.loc["Kingfisher"])\nrow = b.loc["Kingfisher"]\n')
+                     'row = b.loc["Kingfisher"]\n')
     text = convert(source, data_dir=str(data)).converted_text
-    assert '\n    .loc["Kingfisher"],\n)' in text, text
     assert '\n    .loc["Kingfisher"]\n)' in text, text
+
+
+@pytest.mark.parametrize("body", [
+    'b = pd.read_csv("locks.csv", index_col="boat")\nprint(b.loc["Kingfisher"])',
+    'b = pd.read_csv("locks.csv", index_col="boat")\nprint("twice:", b.loc["Otter"])',
+    'b = pd.read_csv("locks.csv").set_index(["kind", "passages"])\nprint(b.loc[("cruiser", 2)])',
+])
+def test_a_printed_row_is_shown_in_polars_without_pandas(body: str, data: Path) -> None:
+    # only printed: the rows holding the label are picked and shown by Polars, as a printed
+    # frame is; pandas is not imported for them (its import costs more than a short run)
+    source = HEAD + body + "\n"
+    text = convert(source, data_dir=str(data)).converted_text
+    assert "to_pandas" not in text and "import pandas" not in text, text
+    assert "pandas_label_rows(" in text, text
+    run(text)
+
+
+@pytest.mark.parametrize("body", [
+    'b = pd.read_csv("locks.csv", index_col="boat")\nprint(b.loc["Nobody"])',
+    'b = pd.read_csv("locks.csv", index_col="boat")\nb = b[b["length_ft"] > 100]\nprint(b.loc["Teal"])',
+])
+def test_a_printed_label_no_row_holds_raises_as_in_pandas(body: str, data: Path) -> None:
+    source = HEAD + body + "\n"
+    with pytest.raises(KeyError):
+        run(source)
+    converted = convert(source, data_dir=str(data)).converted_text
+    with pytest.raises(KeyError):
+        run(converted)

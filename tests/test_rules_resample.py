@@ -317,7 +317,7 @@ def test_an_indexed_frame_read_by_label_stays_pandas_with_its_labels() -> None:
     # the labelled table's .loc by a mask of its labels (the index is a Series porter does not
     # compare with text): kept on pandas, labels set again
     assert "TODO(porter): frame.loc" in result.converted_text
-    assert '.set_index("ts").loc[' in result.converted_text
+    assert '.set_index("ts").loc[' in "".join(result.converted_text.split())
 
 
 # -- the result as pandas' index ---------------------------------------------------------------

@@ -109,10 +109,21 @@ def test_crosstab_of_number_labels_lowers_confidence() -> None:
     assert site.confidence == 0.95 and "as text" in site.message
 
 
+@pytest.mark.parametrize("call", [
+    'pd.crosstab(df["shop"], df["kind"], margins=True, values=df["qty"], aggfunc="mean")',
+    'pd.crosstab(df["shop"], df["kind"], margins=True, values=df["qty"], aggfunc="sum")',
+    'pd.crosstab(df["shop"], df["kind"], margins=True, values=df["qty"], aggfunc="min", '
+    'margins_name="Σ")',
+])
+def test_crosstab_margins_with_values_match_pandas(call: str) -> None:
+    result = differential(FRAME + f"result = {call}\n")
+    assert "pandas_pivot_margins" in result.converted_text
+
+
 @pytest.mark.parametrize("call,reason", [
     ('pd.crosstab(df["size"], df["kind"], margins=True)', "margins"),
-    ('pd.crosstab(df["shop"], df["kind"], margins=True, values=df["qty"], aggfunc="mean")',
-     "margins"),
+    ('pd.crosstab(df["shop"], df["kind"], margins=True, values=df["qty"], aggfunc="median")',
+     "margins of median"),
     ('pd.crosstab([df["shop"], df["size"]], df["kind"], margins=True)', "margins"),
     ('pd.crosstab(df["shop"], df["kind"], dropna=False)', "dropna=False"),
     # pandas writes a header row per columns key (to_csv); Polars has one level of names
@@ -240,11 +251,18 @@ def test_unstack_left_to_pandas_keeps_pandas_layout(call: str) -> None:
     differential(FRAME + f"result = {call}.reset_index()\n")
 
 
-def test_melt_ports_to_unpivot_in_pandas_order() -> None:
+def test_melt_ports_to_selects_stacked_in_pandas_order() -> None:
+    # one select per value column, stacked: pandas' order without numbering and sorting rows
     check_ports(FRAME + 'result = df.melt(id_vars="shop", value_vars=["qty", "n"])\n',
-                '.with_row_index("__melt_row").unpivot(["qty", "n"], index=["shop", "__melt_row"])'
-                '.sort(pl.col("variable").cast(pl.Enum(["qty", "n"])), "__melt_row")'
-                '.drop("__melt_row")')
+                'pl.concat([df.select("shop", pl.lit("qty").alias("variable"), '
+                'pl.col("qty").alias("value")), df.select("shop", pl.lit("n").alias("variable"), '
+                'pl.col("n").alias("value"))], how="vertical_relaxed")')
+
+
+def test_melt_of_an_expression_stacks_the_selects_in_a_pipe() -> None:
+    result = differential(FRAME + 'result = df[df["n"] > 1].melt(id_vars="shop", value_vars=["size", "n"], var_name="what")\n')
+    assert "lambda frame: pl.concat([frame.select(" in result.converted_text
+    assert "__melt_row" not in result.converted_text
 
 
 @pytest.mark.parametrize("call", [

@@ -63,8 +63,13 @@ def test_float_series_are_not_cast_after_the_join() -> None:
     assert "has_nulls" not in result.converted_text.split("result = ", 1)[1]
 
 
+def test_columns_of_one_frame_side_by_side_are_its_rows() -> None:
+    # two columns of the same frame: the same rows under the same labels, a horizontal concat
+    result = differential(HEAD + 'result = pd.concat([scans["heads"], scans["fare"]], axis=1)\n')
+    assert not [s for s in result.sites if s.status == "todo"], result.converted_text
+
+
 @pytest.mark.parametrize("source", [
-    'result = pd.concat([scans["heads"], scans["fare"]], axis=1)',  # row numbers: not a key
     'result = pd.concat([fee, fee * 2], axis=1)',  # one name twice
     'result = pd.concat([fee, seats], axis=1, sort=True)',
 ])

@@ -24,6 +24,14 @@ ARRAY_METHODS = frozenset({
     "score_samples",
 })
 
+# model methods whose result is a numpy array of one row per row given (a model's predictions,
+# a transform's rows), whatever they were given: never a pandas object (pandas' own objects
+# have no method of these names; `transform` is left out, a pandas method too)
+MODEL_ARRAY_METHODS = frozenset({
+    "predict", "predict_proba", "predict_log_proba", "fit_predict", "fit_transform",
+    "decision_function", "score_samples", "inverse_transform",
+})
+
 # matplotlib functions (and Axes methods) that draw the values they are given and never read a
 # Series' row labels
 VALUES_ONLY = frozenset({

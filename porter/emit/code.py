@@ -230,11 +230,19 @@ def layout_chain(code: Code, indent: str, prefix: str, suffix: str = "") -> str:
     # a chain is laid out one step per line; a single call on a plain name (df.with_columns)
     # gets one argument per line instead
     if code.base is None or not code.steps or (len(code.steps) == 1 and "(" not in code.base):
+        if code.base is None and "\n" not in code.text:
+            # text built without its steps known (pandas code kept around a hand-over): its
+            # method chain, when it has one, is laid out as a chain
+            chain = _chain_lines(code.text, indent, prefix, suffix)
+            if chain is not None:
+                return chain
         return _split_call(code.text, prefix, suffix) or one_line
     # continuation lines are relative: libcst adds the enclosing block's indentation
     base = [code.base]
     if len(indent) + 4 + len(code.base) > LINE_LENGTH:
-        split = _split_call(code.base, "", "")  # a long first call: one argument per line
+        # a long first call: one argument per line; a long operation in parentheses, one
+        # operand per line
+        split = _split_call(code.base, "", "") or _split_operation(code.base, "")
         if split is not None:
             base = split.splitlines()
     lines = [f"{prefix}(", *("    " + line for line in base)]
@@ -242,6 +250,27 @@ def layout_chain(code: Code, indent: str, prefix: str, suffix: str = "") -> str:
         lines += _split_step(step, LINE_LENGTH - len(indent) - 4)
     lines.append(f"){suffix}")
     return "\n".join(lines)
+
+
+def _chain_lines(text: str, indent: str, prefix: str, suffix: str) -> str | None:
+    """A method chain of three calls or more given as text, one step per line inside
+    parentheses (as layout_chain lays out a chain it built); None when the text is not one."""
+    parsed = _one_argument(text)
+    if parsed is None or parsed.keyword is not None or parsed.star:
+        return None
+    parts = _chain_parts(parsed, 2)
+    if parts is None:
+        return None
+    head, steps = parts
+    base = [head]
+    if len(indent) + 4 + len(head) > LINE_LENGTH:
+        split = _split_call(head, "", "") or _split_operation(head, "")  # as layout_chain
+        if split is not None:
+            base = split.splitlines()
+    lines = [f"{prefix}(", *("    " + line for line in base)]
+    for step in steps:
+        lines += _split_step(step, LINE_LENGTH - len(indent) - 4)
+    return "\n".join([*lines, f"){suffix}"])
 
 
 def _split_call(text: str, prefix: str, suffix: str) -> str | None:
@@ -293,6 +322,9 @@ def _split_argument(arg: str, indent: str, width: int, min_steps: int = 2) -> li
         return [f"{indent}{head}{{", *(f"{indent}    {item}," for item in items), f"{indent}}},"]
     if parsed is None:
         return [f"{indent}{arg},"]
+    looped = _comprehension_lines(parsed, indent, width)
+    if looped is not None:
+        return looped
     keyword = _argument_head(parsed)  # kw=, or the star of *values / **mapping
     parts = _chain_parts(parsed, min_steps)
     if parts is None:
@@ -322,6 +354,33 @@ def _split_argument(arg: str, indent: str, width: int, min_steps: int = 2) -> li
             lines += _split_argument(arg, indent + "    ", width)
         lines.append(f"{indent}){end}")
     return lines
+
+
+def _comprehension_lines(arg: Any, indent: str, width: int) -> list[str] | None:
+    """`[f(a) for a in names]` or `*(g(b) for b in names)` too long for its line: the value
+    on lines of its own (laid out as an argument is), then each `for` / `if` clause, inside
+    the brackets."""
+    import libcst as cst
+
+    node = arg.value
+    if isinstance(node, cst.ListComp):
+        opening, closing = "[", "]"
+    elif isinstance(node, cst.GeneratorExp) and node.lpar:
+        opening, closing = "(", ")"
+    else:
+        return None
+    module = cst.Module([])
+    value = _split_argument(module.code_for_node(node.elt), indent + "    ", width)
+    value[-1] = value[-1][:-1]  # (an argument's lines end in a comma)
+    clauses: list[str] = []
+    clause: Any = node.for_in
+    while clause is not None:
+        clauses.append(f"for {module.code_for_node(clause.target)} in "
+                       f"{module.code_for_node(clause.iter)}")
+        clauses += [f"if {module.code_for_node(c.test)}" for c in clause.ifs]
+        clause = clause.inner_for_in
+    return [f"{indent}{_argument_head(arg)}{opening}", *value,
+            *(f"{indent}    {c}" for c in clauses), f"{indent}{closing},"]
 
 
 def _split_operation(text: str, prefix: str) -> str | None:
@@ -399,6 +458,7 @@ def _chain_parts(arg: Any, min_steps: int = 2) -> tuple[str, list[str]] | None:
             and isinstance(node.value.value, cst.Call):
         last = module.code_for_node(node)[len(module.code_for_node(node.value.value)):]
         node = node.value.value
+    pending = ""  # `["w"]` between two calls: kept at the end of the call before it
     while isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute) \
             and not node.lpar and not node.func.lpar:
         inner = node.func.value
@@ -409,19 +469,38 @@ def _chain_parts(arg: Any, min_steps: int = 2) -> tuple[str, list[str]] | None:
                 and not inner.lpar:
             attributes.insert(0, "." + inner.attr.value)  # .str / .dt between two calls
             inner = inner.value
+        if isinstance(inner, cst.Subscript) and not inner.lpar and isinstance(inner.value, cst.Call) \
+                and isinstance(inner.value.func, cst.Attribute):
+            # .set_index("k")["w"].plot.bar(): the column taken stays on .set_index's line
+            steps.insert(0, "".join(attributes) + step + pending)
+            pending = module.code_for_node(inner)[len(module.code_for_node(inner.value)):]
+            node = inner.value
+            continue
+        if isinstance(inner, cst.Subscript) and not inner.lpar \
+                and isinstance(inner.value, cst.Attribute) and not inner.value.lpar \
+                and isinstance(inner.value.value, cst.Call) \
+                and isinstance(inner.value.value.func, cst.Attribute):
+            # .agg([...]).loc["a"].plot(): `.loc["a"]` a step of its own
+            steps.insert(0, "".join(attributes) + step + pending)
+            steps.insert(0, module.code_for_node(inner)[len(module.code_for_node(inner.value.value)):])
+            pending = ""
+            node = inner.value.value
+            continue
         if not isinstance(inner, cst.Call):
             if inner.lpar and not attributes:  # (a - b).fill_nan(None): the parentheses lead
-                steps.insert(0, step)
+                steps.insert(0, step + pending)
+                pending = ""
                 node = inner
             break
-        steps.insert(0, "".join(attributes) + step)
+        steps.insert(0, "".join(attributes) + step + pending)
+        pending = ""
         node = inner
     if last:
         steps.append(last)
     if len(steps) < min_steps:
         return None
     steps[-1] += indexed
-    head = module.code_for_node(node)
+    head = module.code_for_node(node) + pending
     if keyword is not None:
         head = f"{keyword.value}={head}"
     elif arg.star:  # *values / **mapping: the star stays in front of the chain

@@ -13,6 +13,7 @@ import math
 
 import libcst as cst
 
+from porter.analysis.consumers import MODEL_ARRAY_METHODS
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
@@ -23,11 +24,12 @@ from porter.rules.ops import (
 )
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
+    row_labels_carried,
     floats_where_missing, mark_float_ints, nullable_mark, set_nullable_ints, with_column_updates,
 )
 from porter.rules.strings import LIST_STR, expanded_columns, list_repr
 from porter.translate.handover import (makes_periods, makes_python_ints, orders_categories,
-                                       pandas_text, text_categories)
+                                       pandas_text, series_frame, text_categories)
 from porter.translate.values import (
     MISSING, NOT_NULLABLE, Column, Frame, Indexed, Opaque, PandasValue, Parts, Scalar, Value,
     fresh_token,
@@ -127,12 +129,15 @@ def value_expr(value: Value, frame: Frame, ctx: RuleContext) -> tuple[Code, str 
             return emit.call("pl.Series", Code(
                 f"[None if x != x else x for x in {value.code.text}]")), None
         return int64_lit(value.code) if value.pytype == "int" else emit.pl("lit", value.code), None
-    if isinstance(value, Opaque) and any(s.status != "converted" for s in value.sites):
+    per_row = _per_row(value.code.text) if isinstance(value, Opaque) else None
+    if isinstance(value, Opaque) and any(s.status != "converted" for s in value.sites) \
+            and not (per_row == "numpy" and not _SERIES_KEEPING.intersection(
+                _names_and_attributes(value.code.text))):
         # the script's own function (or another library) given data from a frame: it may well
-        # return a Series, which pandas aligns on the index and pl.lit cannot hold
+        # return a Series, which pandas aligns on the index and pl.lit cannot hold (a numpy
+        # array, a model's predictions, is placed by position)
         raise Unsupported(f"`{_short(value.code.text)}` is computed from frame data by code porter "
                           "hands to pandas, and may be a Series: the statement stays pandas")
-    per_row = _per_row(value.code.text) if isinstance(value, Opaque) else None
     if isinstance(value, Opaque) and (value.pytype in ("list", "tuple") or per_row):
         # a list is placed by position, one value per row (pandas raises on another length,
         # and so does Polars); Polars infers the type from the Python values
@@ -499,6 +504,21 @@ _ARRAY_MAKERS = {"arange", "array", "asarray", "linspace", "repeat", "tile", "ze
                  "full", "empty", "concatenate", "cumsum", "random", "where", "select"}
 
 
+# numpy functions that give a Series back when given one (np.cumsum(s) is s.cumsum(), with its
+# labels), where the others give an array
+_SERIES_KEEPING = frozenset({"cumsum", "repeat"})
+
+
+def _names_and_attributes(text: str) -> set[str]:
+    """The names and attribute names in a piece of code."""
+    try:
+        tree = ast.parse(text, mode="eval")
+    except SyntaxError:
+        return set()
+    return {n.id if isinstance(n, ast.Name) else n.attr for n in ast.walk(tree)
+            if isinstance(n, (ast.Name, ast.Attribute))}
+
+
 def _per_row(text: str) -> str | None:
     """Code that makes one value per row, not a single value (pl.lit would give every row the
     whole list): "numpy" for a numpy array (`np.arange(n) - 5`), "list" for Python values (`[a, b]
@@ -517,8 +537,19 @@ def _per_row(text: str) -> str | None:
         return isinstance(func, ast.Name) and func.id in ("np", "numpy") \
             and bool(set(names) & _ARRAY_MAKERS)
 
+    def model_array(node: ast.AST) -> bool:
+        # a model's predictions or a transform's rows (km.fit_predict(X), scaler.fit_transform(
+        # ...)), and a column of a 2-D array (pcs[:, 0]): numpy arrays, one value per row
+        if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute):
+            return node.func.attr in MODEL_ARRAY_METHODS
+        return isinstance(node, ast.Subscript) and isinstance(node.slice, ast.Tuple) \
+            and len(node.slice.elts) == 2 and isinstance(node.slice.elts[0], ast.Slice) \
+            and node.slice.elts[0].lower is None and node.slice.elts[0].upper is None
+
     def many(node: ast.AST) -> bool:
         if isinstance(node, (ast.List, ast.Tuple, ast.ListComp, ast.GeneratorExp)):
+            return True
+        if model_array(node):
             return True
         if isinstance(node, ast.BinOp):
             return many(node.left) or many(node.right)
@@ -532,7 +563,7 @@ def _per_row(text: str) -> str | None:
         return None
     while isinstance(node, ast.BinOp):  # np.arange(n) - 5 is still the numpy array's
         node = node.left
-    return "numpy" if numpy_call(node) else "list"
+    return "numpy" if numpy_call(node) or model_array(node) else "list"
 
 
 # calls whose pandas result can hold Interval values (bins without labels)
@@ -644,13 +675,36 @@ def _frame_into_columns(frame: Frame, keys: list[str], value: Frame) -> Frame:
 
 ALIGNED = "_porter_aligned"
 
+# A Series labelled by a key of distinct values set into a frame labelled by that key, as
+# pandas aligns it (each row the value of its label); a frame without rows takes the Series'
+# labels as its rows in pandas, its other columns missing there
+ALIGNED_FUNCTION = "pandas_aligned"
+ALIGNED_DEFINITION = '''\
+def pandas_aligned(frame, values, key):
+    """The frame with the columns of `values` (its labels `key` and the values) joined on
+    `key` as pandas aligns a Series set into a frame: each row gets the value of its label
+    (missing where the Series lacks it, a missing label matching a missing one); a frame
+    without rows gets the Series' labels as its rows, as pandas gives it them."""
+    joined = frame.join(values, on=key, how="left", nulls_equal=True, maintain_order="left")
+    rows = frame.select(pl.len().alias("_porter_rows"))
+    taken = (
+        values.join(rows, how="cross", maintain_order="left")
+        .filter(pl.col("_porter_rows") == 0)
+        .drop("_porter_rows")
+    )
+    return pl.concat([joined, taken], how="diagonal_relaxed")
+'''
+
 
 def _labelled_alike(frame: Frame, other: Frame) -> bool:
-    """Both tables labelled by the same one key column, each label once (a groupby's results
-    on one key, in their own order): a Series of one set into the other is aligned on it."""
+    """Both tables labelled by the same one key column, the Series' each label once (a
+    groupby's results on one key, in their own order): a Series of one set into the other is
+    aligned on it. The frame's labels may repeat (set_index of a column, a table a function
+    returned labelled by its key): pandas reindexes the Series to them, each row getting the
+    value of its label, which a left join on the key gives too."""
     from porter.rules.selection import unique_key
-    return len(frame.index) == 1 and frame.index == other.index \
-        and unique_key(frame) and unique_key(other)
+    return len(frame.index) == 1 and frame.index == other.index and unique_key(other) \
+        and (unique_key(frame) or not frame.index_unnamed)
 
 
 def _aligned_on_labels(frame: Frame, name: str, value: Column, ctx: RuleContext) -> Frame:
@@ -659,7 +713,8 @@ def _aligned_on_labels(frame: Frame, name: str, value: Column, ctx: RuleContext)
     Series lacks it, a label only the Series has is dropped): a left join on the key column,
     missing keys matching each other as pandas' NaN labels do. The column keeps its place when
     it exists. An integer Series is float64 in pandas where a label went missing: made Float64
-    there once the join has run; a True/False one becomes object with NaN in pandas: a TODO."""
+    there once the join has run; a True/False one becomes object with NaN in pandas: a TODO.
+    A frame without rows is given the Series' labels as its rows, as pandas gives them."""
     key = frame.index[0]
     kinds = {frame.dtype(key), value.frame.dtype(key)}
     if len(kinds) > 1 and None not in kinds:
@@ -671,8 +726,8 @@ def _aligned_on_labels(frame: Frame, name: str, value: Column, ctx: RuleContext)
         ctx.lower("the Series' type is not known: True/False values become an object column in "
                   "pandas where a label is missing (Boolean with null here)", 0.9)
     other = value.frame.code.method("select", emit.col(key), value.code.method("alias", ALIGNED))
-    joined = replace(frame, code=frame.code.method(
-        "join", other, on=key, how="left", nulls_equal=True, maintain_order="left"))
+    # a left join; a frame without rows takes the Series' labels as its rows (pandas_aligned)
+    joined = replace(frame, code=emit.call(ALIGNED_FUNCTION, frame.code, other, key))
     result = with_columns(joined, [(name, emit.col(ALIGNED), value.dtype)])
     code = result.code.method("drop", ALIGNED)
     if value.dtype in ("int", None):
@@ -749,6 +804,15 @@ def join_parts(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(other, Indexed) and not other.frame.index:
         # other.set_index("k"): its frame, the key held as its index
         other = replace(other.frame, index=(other.key,), index_unnamed=False)
+    if isinstance(other, Column) and other.name is not None and other.frame.index \
+            and not other.element and not call.has("on") and other.name not in other.frame.index:
+        # a named Series labelled by key columns: the frame of its keys and its values
+        # (pandas joins it as that one-column frame)
+        other = Frame(series_frame(other), columns=(*other.frame.index, other.name),
+                      index=other.frame.index, index_unnamed=other.frame.index_unnamed,
+                      dtypes=tuple((k, t) for k, t in other.frame.dtypes if k in other.frame.index)
+                      + (((other.name, other.dtype),) if other.dtype else ()),
+                      labels_intact=False)
     if isinstance(other, Frame) and not call.has("on"):
         return _join_on_index(frame, other, call, ctx, advice)
     if not isinstance(other, Parts) or call.has("on"):
@@ -780,10 +844,15 @@ def _join_on_index(frame: Frame, other: Frame, call: PandasCall, ctx: RuleContex
     pandas aligns the rows on their labels: each left row with the right rows of its label (a
     missing label matches a missing one, nulls_equal), in the left's order, then the right's;
     the result keeps the left's index. An int column of the right frame is float64 in pandas
-    where a left row found no label (made Float64 once the join has run, as after a merge)."""
+    where a left row found no label (made Float64 once the join has run, as after a merge).
+    how="outer" (one key): the labels of both, sorted, a missing one last; int columns of
+    either side float64 where a label the other side lacks left them missing. `other` may be
+    a named Series labelled by the same key (joined as its one-column frame)."""
     how = call.const("how", 2, "left", kinds=(str,))
-    if how not in ("left", "inner"):
+    if how not in ("left", "inner", "outer"):
         raise ctx.todo(f"how={how!r}: " + advice)
+    if how == "outer" and len(frame.index) != 1:
+        raise ctx.todo("how='outer' on labels of several keys: " + advice)
     if call.const("sort", 5, False) is not False or call.has("validate") \
             or call.has("lsuffix") or call.has("rsuffix"):
         raise ctx.todo("sort, validate or suffixes: " + advice)
@@ -805,10 +874,25 @@ def _join_on_index(frame: Frame, other: Frame, call: PandasCall, ctx: RuleContex
     else:
         ctx.lower("the columns of a frame are not known: pandas raises where both frames have "
                   "a column of one name, Polars suffixes the right one", 0.95)
-    code = frame.code.method("join", other.code, on=emit.names_arg(keys), how=how,
-                             nulls_equal=True, maintain_order="left_right")
+    if how == "outer":
+        # pandas' outer join on the labels: the union of both sides' labels, sorted (a
+        # missing label last), the rows of one label in the left's order then the right's
+        code = frame.code.method("join", other.code, on=emit.names_arg(keys), how="full",
+                                 coalesce=True, nulls_equal=True,
+                                 maintain_order="left_right") \
+            .method("sort", keys[0], nulls_last=True, maintain_order=True)
+    else:
+        code = frame.code.method("join", other.code, on=emit.names_arg(keys), how=how,
+                                 nulls_equal=True, maintain_order="left_right")
     dtypes = {**dict(other.dtypes), **dict(frame.dtypes)}
     ints = [c for c in right_columns or () if other.dtype(c) == "int"] if how == "left" else []
+    if how == "outer":
+        # a label one side lacks leaves the other side's columns missing: float64 in pandas
+        left_columns = [c for c in frame.columns or () if c not in keys]
+        ints = [c for c in left_columns if frame.dtype(c) == "int"] \
+            + [c for c in right_columns or () if other.dtype(c) == "int"]
+        if frame.columns is None or right_columns is None:
+            raise ctx.todo("how='outer' of a frame whose columns porter does not know: " + advice)
     if ints:
         code = floats_where_missing(code, ints)
         dtypes = {c: t for c, t in dtypes.items() if c not in ints}
@@ -948,14 +1032,38 @@ def drop(call: PandasCall, ctx: RuleContext) -> Value:
     """df.drop(columns=[...]) / df.drop("c", axis=1) -> .drop(...)."""
     frame = call.receiver
     assert isinstance(frame, Frame)
-    ctx.reject_unknown(call, "labels", "columns", "axis", positional=1)
+    ctx.reject_unknown(call, "labels", "columns", "axis", "index", positional=1)
+    if call.has("index"):
+        if call.has("columns") or call.has("labels", 0):
+            raise Unsupported("index= with labels= or columns=")
+        return _rows_dropped(frame, call.const("index", None, None, kinds=(str, int, list)), ctx)
     if call.has("columns"):
         names = call.const("columns")
     else:
         if call.const("axis", None, 0) not in (1, "columns"):
-            raise Unsupported("dropping rows by index label")
+            return _rows_dropped(frame, call.const("labels", 0, None, kinds=(str, int, list)),
+                                 ctx)
         names = call.const("labels", 0)
     return dropped(frame, column_names(names))
+
+
+def _rows_dropped(frame: Frame, labels: object, ctx: RuleContext) -> Frame:
+    """df.drop(index=labels) of a table labelled by one key column (a pivot's or groupby's
+    keys, set_index): the rows whose key is one of the labels filtered out, every such row,
+    as pandas drops every row holding the label. A row whose key is missing stays.
+    pandas raises KeyError for a label no row holds, where here nothing is dropped (0.9)."""
+    wanted = labels if isinstance(labels, list) else [labels]
+    if len(frame.index) != 1 or row_labels_carried(frame) or not wanted:
+        raise Unsupported("dropping rows by index label (a table labelled by one key column "
+                          "is ported)")
+    key = frame.index[0]
+    kinds = {str: "str", int: "int"}
+    if any(isinstance(w, bool) or kinds.get(type(w)) != frame.dtype(key) for w in wanted):
+        raise Unsupported("dropping rows by a label of another type than the key column (or "
+                          "a key of unknown type)")
+    ctx.lower("a label no row holds: pandas raises KeyError, here no row is dropped", 0.9)
+    keep = emit.unary("~", emit.col(key).method("is_in", wanted).method("fill_null", False))
+    return derive(frame, frame.code.method("filter", keep), same_rows=False)
 
 
 def dropped(frame: Frame, names: list[str]) -> Frame:
@@ -985,6 +1093,14 @@ def set_columns(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(frame, Frame)
     from porter.rules.selection import computed_names, data_columns
     from porter.rules.selection import LevelNames
+    given = call.args[0]
+    if isinstance(given, Scalar) and given.pytype == "names.formatted" \
+            and given.of is not None and given.of.code.text == frame.code.text:
+        # df.columns = df.columns.strftime(format) right after a pivot on a date key: the pivot
+        # named them so already (frame.columns.strftime); nothing is written
+        return replace(frame, dates_as_text=None)
+    if frame.dates_as_text is not None:
+        raise Unsupported("new names for a pivot's date columns other than their strftime")
     value = computed_names(call.args[0])  # df.columns.str.strip()...: the names as a list
     if isinstance(value, LevelNames) and value.of == frame.code:
         # df.columns = df.columns.droplevel(n) where the data decides which columns there

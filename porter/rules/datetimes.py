@@ -572,12 +572,18 @@ def strftime(call: PandasCall, ctx: RuleContext) -> Value:
     fmt = call.const("date_format", 0)
     if not isinstance(fmt, str):
         raise ctx.todo("the format must be text")
+    return _result(column, _dt(column).method("to_string", polars_strftime(fmt)), "str")
+
+
+def polars_strftime(fmt: str) -> str:
+    """A strftime format of pandas' as Polars' dt.to_string writes the same text with it:
+    %Y %m %d %H %M %S %y %b %B %a %A %j %p %I %U %W %% read the same; %f (6 digits in Python,
+    9 in Polars) is written %6f; other directives raise Unsupported."""
     other = sorted(set(_directives(fmt)) - _SAME_FORMAT - set("aAUWf"))
     if other:
-        raise ctx.todo(f"directives {', '.join('%' + d for d in other)} are not checked to "
-                       "format the same in Polars")
-    fmt = re.sub(r"(?<!%)((?:%%)*)%f", r"\1%6f", fmt)
-    return _result(column, _dt(column).method("to_string", fmt), "str")
+        raise Unsupported(f"directives {', '.join('%' + d for d in other)} are not checked to "
+                          "format the same in Polars")
+    return re.sub(r"(?<!%)((?:%%)*)%f", r"\1%6f", fmt)
 
 
 # pandas' strptime patterns (TimeRE in pandas/_libs/tslibs/strptime.pyx, English names), one

@@ -26,13 +26,13 @@ from porter.rules import rule
 from porter.rules.io_options import ROW_FUNCTION, float_text
 from porter.rules.ops import abs_, compare, int64_branches, int64_lit, may_hold_nan, round_
 from porter.rules.strings import LIST_STR
-from porter.rules.totals import column_totals, pandas_median, pandas_reduce
+from porter.rules.totals import VALUE, column_totals, pandas_median, pandas_reduce
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_of, derived_column, number_cells,
     row_labels_carried,
     value_dtype, with_column_updates,
 )
-from porter.translate.values import Column, Frame, Items, Opaque, Scalar, Value
+from porter.translate.values import Column, Frame, Items, Opaque, Scalar, Value, fresh_token
 
 
 def frame_lambda(node: cst.Lambda, frame: Frame, ctx: RuleContext) -> Value:
@@ -217,8 +217,9 @@ def _element_slice(value: Column, lower: int | None, upper: int | None,
 
 def _checked(value: Value, ctx: RuleContext) -> Value:
     if any(site.status == "todo" for site in value.sites):
-        raise Unsupported("part of the function has no expression form: "
-                          + "; ".join(s.message for s in value.sites if s.status == "todo"))
+        # (each reason once: the same hand-over met at several places of the body)
+        raise Unsupported("part of the function has no expression form: " + "; ".join(
+            dict.fromkeys(s.message for s in value.sites if s.status == "todo")))
     # the lambda's own sites are folded into this one: keep their lowered confidences
     for site in value.sites:
         if site.confidence < ctx.confidence:
@@ -1779,7 +1780,9 @@ def _per_column(call: PandasCall, frame: Frame, ctx: RuleContext) -> Column:
     and made float beside a float column as pandas makes the Series float64."""
     if call.name == "sum" and call.const("min_count", None, 0, kinds=(int,)) > 0:
         raise Unsupported("min_count per column")
-    if frame.columns is None or not frame.columns:
+    if frame.columns is None:
+        return _pivot_totals(call, frame, ctx)
+    if not frame.columns:
         raise Unsupported("the frame's columns are not known")
     names = [c.name for c in _row_columns(call, frame)]  # type: ignore[misc]
     if call.const("numeric_only", None, False, kinds=(bool,)):
@@ -1816,6 +1819,56 @@ def _per_column(call: PandasCall, frame: Frame, ctx: RuleContext) -> Column:
         return extreme.method("cast", as_float) if floats and kinds[name] == "int" else extreme
 
     return column_totals(frame, names, reduce, "float" if floats else "int")
+
+
+def _pivot_totals(call: PandasCall, frame: Frame, ctx: RuleContext) -> Column:
+    """pivoted.sum() / mean / min / max / count per column of a table an unstack or crosstab
+    made (its columns the text values of a key, porter not knowing which; every cell a number
+    of one type): pandas' Series labelled by the column names, its labels named after the
+    columns' name (the key's). Every column but the index keys reduced at once, unpivoted in
+    the columns' order; floats added as pandas adds them (totals.pandas_reduce)."""
+    from porter.translate.context import number_cells
+    pivoted, kind = number_cells(frame)
+    if not pivoted or frame.columns_kind != "str" or frame.column_pairs or frame.value_levels:
+        raise Unsupported("the frame's columns are not known")
+    if call.has("numeric_only") or call.has("skipna"):
+        raise Unsupported("numeric_only= or skipna= on a pivoted table")
+    if kind == "bool" and call.name not in ("sum", "mean", "count"):
+        raise Unsupported(f"{call.name} per column of a table of True/False")
+    if kind not in ("int", "float", "bool", None) or kind is None and call.name == "sum":
+        # (a sum adds whole numbers exactly and floats as numpy does: the type decides)
+        raise Unsupported("a pivoted table whose cells' type porter does not know")
+    cells = emit.pl("exclude", *frame.index) if frame.index else emit.pl("all")
+    if kind not in ("int", "bool") and call.name != "count":
+        cells = cells.method("fill_nan", None)  # NaN is skipped, as pandas skips it
+    as_float = emit.atom("pl.Float64")
+    if call.name == "count":
+        values, dtype = cells.method("count").method("cast", emit.atom("pl.Int64")), "int"
+    elif call.name == "sum":
+        # whole numbers and True/False (counted as 1) exactly, int64; floats as numpy adds them
+        values = pandas_reduce(cells) if kind == "float" \
+            else cells.method("sum").method("cast", emit.atom("pl.Int64"))
+        dtype = "float" if kind == "float" else "int"
+    elif call.name == "mean":
+        values = pandas_reduce(cells if kind == "float" else cells.method("cast", as_float), "mean")
+        dtype = "float"
+    elif call.name in ("min", "max"):
+        # cells of a type the data decides (an unstack of whole numbers with a combination
+        # missing is float64 in both): the unpivot gives the columns' common type, as pandas
+        values, dtype = cells.method(call.name), kind
+    else:
+        raise Unsupported(f"{call.name} per column of a pivoted table")
+    label = frame.columns_name if frame.columns_name is not None else "index"
+    if label in frame.index or label == VALUE:
+        raise Unsupported("the columns' name is an index key's")
+    code = frame.code.method("select", values).method(
+        "unpivot", variable_name=label, value_name=VALUE)
+    rows = fresh_token()
+    # the column names, each once, in the pivot's sorted order: labels of distinct values
+    result = Frame(code, columns=(label, VALUE), index=(label,),
+                   index_unnamed=frame.columns_name is None, labels_intact=False,
+                   dtypes=((label, "str"), (VALUE, dtype)), rows=rows, grouped_rows=rows)
+    return Column(emit.col(VALUE), frame=result, name=None, dtype=dtype, refs=frozenset({VALUE}))
 
 
 def _row_columns(call: PandasCall, frame: Frame) -> list[Column]:

@@ -4,6 +4,7 @@ value_counts, unique, nunique, describe."""
 from __future__ import annotations
 
 import ast
+import re
 from dataclasses import dataclass, field, replace
 from typing import Any, ClassVar, Collection
 
@@ -17,8 +18,8 @@ from porter.rules.elementwise import body_expression
 from porter.rules.totals import pandas_median, pandas_reduce
 from porter.rules.ops import float32_possible, small_ints_possible
 from porter.rules.io_options import (
-    CATEGORY_COUNTS_FUNCTION, DIVIDE_FUNCTION, MARGINS_FUNCTION, QUANTILE_FUNCTION,
-    UNSTACKED_FUNCTION,
+    CATEGORY_COUNTS_FUNCTION, DATES_AS_TEXT_FUNCTION, DIVIDE_FUNCTION, MARGINS_FUNCTION,
+    QUANTILE_FUNCTION, UNSTACKED_FUNCTION,
 )
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, check_same_rows, column_names, column_of, derive,
@@ -259,6 +260,28 @@ def in_key_order_flag(grouped: Grouped, exprs: list[Code],
     # a row with any key missing is dropped by pandas (id -1): it must come first
     complete = emit.unary("~", emit.pl("any_horizontal", emit.pl("col", *keys).method("is_null")))
     return emit.when(complete, emit.pl("struct", *keys)).method("is_sorted")
+
+
+def pivot_groups(source: Code, groups: list[str], value: str, expr: Code) -> Code:
+    """The groups of a pivot (pivot_table, crosstab with values=): `source` without the rows
+    missing a key, grouped by `groups`, `expr` (agg_expr of the column `value`) per group. A
+    float sum or mean is added as pandas adds it (agg_with_sums): pandas 3.1 groups by
+    monotonic ids and adds with numpy's reduceat where the rows come sorted by the keys (those
+    missing a key first) and the column holds no missing value at all (NaN on a row missing a
+    key counts too), and with its compensated sum otherwise: the flag is computed on the rows
+    before any is dropped."""
+    split = _own_group_sum(expr)
+    if split is None or split[1] == WHOLE_FRAME:
+        return agg_with_sums(source.method("drop_nulls", groups).method("group_by", groups),
+                             expr)
+    complete = emit.unary("~", emit.pl("any_horizontal", emit.pl("col", *groups).method("is_null")))
+    ordered = emit.when(complete, emit.pl("struct", *groups)).method("is_sorted") \
+        if len(groups) > 1 else emit.col(groups[0]).method("is_sorted")
+    present = emit.unary("~", emit.col(value).method("fill_nan", None).method("is_null")
+                         .method("any"))
+    flagged = source.method("with_columns", **{IN_KEY_ORDER: emit.binop(ordered, "&", present)})
+    return agg_with_sums(flagged.method("drop_nulls", groups).method("group_by", groups), expr,
+                         in_key_order=IN_KEY_ORDER)
 
 
 MIN_COUNT_FLAG = "_porter_min_count_"
@@ -670,6 +693,21 @@ def groupby_getitem(call: PandasCall, ctx: RuleContext) -> Value:
                        group_keys=grouped.group_keys, selection=tuple(key.const), single=False,
                        prepared=grouped.prepared, key_list=grouped.key_list,
                        pandas=grouped.pandas, hides_column=grouped.hides_column)
+    if isinstance(key, Scalar) and key.pytype == "list[str]" and not grouped.prepared \
+            and grouped.pandas is None and not grouped.frame.index:
+        # g[cols] of a list of names made when the script runs (list(other.columns)): the
+        # frame narrowed to the keys and those columns, grouped as a frame whose other
+        # columns porter does not know (a key named in the list, which pandas aggregates as
+        # a column too, makes Polars raise on the name held twice: never a table without it)
+        frame = grouped.frame
+        keys = list(grouped.keys)
+        chosen = emit.pl("col", key.code)
+        narrowed = derive(frame, frame.code.method("select", *keys, chosen), same_rows=True,
+                          columns=None, dtypes=tuple((k, t) for k, t in frame.dtypes if k in keys))
+        return Grouped(narrowed.code, frame=narrowed, keys=grouped.keys, sort=grouped.sort,
+                       dropna=grouped.dropna, as_index=grouped.as_index,
+                       group_keys=grouped.group_keys, selection=None, single=False,
+                       key_list=grouped.key_list)
     raise Unsupported("selecting group columns by a computed key")
 
 
@@ -1399,6 +1437,47 @@ def numpy_reduction(call: PandasCall, ctx: RuleContext) -> Value:
     return series_reduce(replace(call, receiver=column, name=how, args=(), kwargs=kwargs), ctx)
 
 
+# numpy's order statistics of a Series read its values (numpy does not hand them to the
+# Series' own method): a missing value, NaN to numpy, makes the result NaN; the nan* forms
+# skip missing values. The quantile asked for, as a fraction (np.percentile's q / 100)
+NUMPY_QUANTILES = ("np.median", "np.nanmedian", "np.percentile", "np.nanpercentile",
+                   "np.quantile", "np.nanquantile")
+
+
+@rule(*NUMPY_QUANTILES)
+def numpy_quantile(call: PandasCall, ctx: RuleContext) -> Value:
+    """np.median(s) / np.percentile(s, q) / np.quantile(s, q) and their nan* forms ->
+    numpy's linear interpolation of the column's values (pandas_quantile), one value.
+
+    Handles: numpy interpolates linearly between the two values around the position, to the
+    last digit as pandas_quantile computes it; np.percentile divides q by 100 as numpy does;
+    a missing value makes np.median / np.percentile / np.quantile NaN (numpy reads NaN), the
+    nan* forms skip missing values; integer columns give floats.
+    Caveats: several quantiles at once (a list q), axis=, method= and the like, a q outside
+    [0, 100] (numpy raises), and columns not known to hold numbers are TODOs.
+    """
+    name = call.name
+    median = name.endswith("median")
+    ctx.reject_unknown(call, "a", *(() if median else ("q",)), positional=1 if median else 2)
+    column = call.arg("a", 0)
+    if not isinstance(column, Column) or column.element:
+        raise Unsupported(f"np.{name} of something other than one column")
+    if column.dtype not in ("int", "float"):
+        raise Unsupported(f"np.{name} of a column not known to hold numbers")
+    q = 0.5 if median else call.const("q", 1, None)
+    if not isinstance(q, (int, float)) or isinstance(q, bool):
+        raise Unsupported("several quantiles at once, or a q computed at run time")
+    if name.endswith("percentile"):
+        q = q / 100  # numpy's true division, the same float
+    if not 0 <= q <= 1:
+        raise Unsupported("a quantile outside [0, 1] (numpy raises)")
+    expr = emit.call(QUANTILE_FUNCTION, column.code, q)
+    if not name.startswith("nan"):
+        # numpy reads a missing value as NaN, which makes the result NaN
+        expr = emit.when(emit.binop(column.code.method("null_count"), "==", 0), expr)
+    return scalar_of(column, expr, collected=expr.method("fill_null", emit.call("float", "nan")))
+
+
 @rule("series.mode")
 def series_mode(call: PandasCall, ctx: RuleContext) -> Value:
     """s.mode() -> the most frequent values, sorted, as a column of a frame of their own.
@@ -1584,10 +1663,98 @@ def _nan_when_empty(column: Column, how: str, expr: Code, ctx: RuleContext) -> C
     return expr
 
 
+def _has_bins(call: PandasCall) -> bool:
+    bins = call.kwargs.get("bins")
+    return bins is not None and not (isinstance(bins, Opaque) and bins.is_const and bins.const is None)
+
+
+def interval_labels(edges: list[int | float]) -> list[str]:
+    """The text of the Interval labels pd.cut(values, edges, include_lowest=True) gives its
+    bins, as pandas writes them ("(0.999, 1.5]": the first edge moved down by 10**-3, pandas'
+    display precision, and the edges rounded to it): computed by pandas itself from the edges,
+    which are literal numbers."""
+    import pandas as pd
+
+    categories = pd.cut(pd.Series([], dtype="float64"), edges, include_lowest=True).cat.categories
+    return [str(c) for c in categories]
+
+
+def _literal_edges(call: PandasCall, column: Column) -> list[int | float]:
+    """value_counts(bins=[edges]): the edges, a literal list of increasing numbers, of a
+    column of numbers; anything else a TODO saying why."""
+    bins = call.const("bins", None, None, kinds=(list, tuple, int))
+    if isinstance(bins, int) and not isinstance(bins, bool):
+        raise Unsupported(
+            "bins as a number of bins: pandas counts pd.cut(values, n, include_lowest=True), "
+            "whose edges come from the data (min and max, widened by 0.1%) and whose Interval "
+            "labels round them for display ((0.0891, 3.4]); porter ports literal edges only")
+    if not isinstance(bins, (list, tuple)) or len(bins) < 2 or not all(
+            isinstance(b, (int, float)) and not isinstance(b, bool) and b == b
+            and abs(b) != float("inf") for b in bins):
+        raise Unsupported("bins other than a literal list of finite numbers")
+    if any(a >= b for a, b in zip(bins, bins[1:])):
+        raise Unsupported("bins that do not increase (pandas raises)")
+    if column.dtype not in ("int", "float"):
+        raise Unsupported("bins of a column not known to hold numbers (pandas raises on text)")
+    return list(bins)
+
+
+def _binned_counts(call: PandasCall, column: Column, ctx: RuleContext) -> Value:
+    """s.value_counts(bins=[edges]) -> the rows cut into the bins as pd.cut(include_lowest=True)
+    cuts them (an Enum of the Interval labels' text), counted by pandas_category_counts.
+
+    pandas counts pd.cut(values, bins, include_lowest=True): each bin once, in the bins' order,
+    an empty one as 0; values outside every bin and missing ones are not counted (dropna=False
+    too: pandas drops that missing label); with dropna=True (the default) and no value in any
+    bin the result has no rows; normalize divides by the number of values, missing ones and
+    those outside the bins too; sort orders the counts stably (ties in the bins' order)."""
+    # pandas labels the counts by the bins in an unnamed index (not named after the Series),
+    # which reset_index() names "index"
+    name = "index"
+    edges = _literal_edges(call, column)
+    labels = interval_labels(edges)
+    values = column.code
+    if column.dtype == "float":
+        values = values.method("fill_nan", None)  # NaN falls in no bin
+    code: Code | None = None
+    for i, (low, high, label) in enumerate(zip(edges, edges[1:], labels)):
+        # right-closed bins; include_lowest closes the first on its exact edge (pandas counts
+        # a value equal to edges[0], not one between the label's moved edge and edges[0])
+        test = values.method("is_between", low, high, closed="both" if i == 0 else "right")
+        step = emit.pl("lit", label)
+        code = emit.pl("when", test).method("then", step) if code is None \
+            else code.method("when", test).method("then", step)
+    assert code is not None
+    binned = code.method("cast", emit.pl("Enum", labels)).method("alias", name)
+    source = column.frame.code.method("select", binned)
+    counts = emit.call(CATEGORY_COUNTS_FUNCTION, source.method("drop_nulls"), name)
+    dropna = call.const("dropna", None, True, kinds=(bool,))
+    if dropna:
+        # pandas gives no rows where no value falls in any bin
+        counts = counts.method("filter", emit.binop(emit.col("count").method("sum"), ">", 0))
+    result_name = "count"
+    if call.const("normalize", None, False, kinds=(bool,)):
+        # divided by the number of values, those in no bin and missing ones too
+        total = column.frame.code.method("select", emit.pl("len").method("alias", "_porter_rows"))
+        counts = counts.method("join", total, how="cross").method(
+            "select", emit.col(name), emit.call(
+                DIVIDE_FUNCTION, emit.col("count"), emit.col("_porter_rows")).method(
+                "alias", "proportion"))
+        result_name = "proportion"
+    if call.const("sort", None, True, kinds=(bool,)):
+        descending = not call.const("ascending", None, False, kinds=(bool,))
+        kwargs: dict[str, object] = {"descending": True} if descending else {}
+        counts = counts.method("sort", result_name, **kwargs, maintain_order=True)
+    kind = "float" if result_name == "proportion" else "int"
+    result = Frame(counts, columns=(name, result_name), index=(name,), labels_intact=False,
+                   index_unnamed=True, dtypes=((name, "enum"), (result_name, kind)))
+    return Column(emit.col(result_name), frame=result, name=result_name, dtype=kind,
+                  refs=frozenset({result_name}))
+
+
 def _reject_bins(call: PandasCall) -> None:
     """value_counts(bins=...): a TODO saying why (bins=None is no bins)."""
-    bins = call.kwargs.get("bins")
-    if bins is not None and not (isinstance(bins, Opaque) and bins.is_const and bins.const is None):
+    if _has_bins(call):
         raise Unsupported(
             "bins: pandas counts pd.cut(values, bins, include_lowest=True) and labels the "
             "counts with Interval values, every bin listed (empty ones as 0): with a number of "
@@ -1612,8 +1779,9 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
     """
     column = call.receiver
     assert isinstance(column, Column)
-    _reject_bins(call)
     ctx.reject_unknown(call, "normalize", "sort", "ascending", "dropna", "bins")
+    if _has_bins(call):
+        return _binned_counts(call, column, ctx)
     name = column.name
     if name is None:
         raise Unsupported("counting an unnamed Series")
@@ -2035,6 +2203,56 @@ def series_describe(call: PandasCall, ctx: RuleContext) -> Value:
                   refs=frozenset({name}))
 
 
+@rule("groupby.describe")
+def group_describe(call: PandasCall, ctx: RuleContext) -> Value:
+    """g["c"].describe() of numbers -> count, mean, std, min, 25%, 50%, 75%, max per group in
+    one LazyGroupBy.agg, a frame labelled by the keys.
+
+    Handles: pandas describes each group's Series as Series.describe does, so each statistic
+    is computed as series.describe computes it: count as a float, mean and std added as numpy
+    adds (pandas_reduce; two passes, not the Welford's method of groupby.std), percentiles
+    interpolated as numpy (pandas_quantile); missing values (NaN too) skipped, a group without
+    values counted 0 with the others missing; every statistic a float; keys sorted, sort=,
+    dropna=, as_index= as the other aggregations.
+    Caveats: a frame's groupby (pandas' columns are a MultiIndex of column and statistic),
+    text, True/False and dates (other statistics in pandas), a column of unknown type, and
+    percentiles= / include= / exclude= are TODOs. A frame without rows keeps its key columns
+    here, where pandas gives an unnamed empty index (0.95).
+    """
+    grouped = grouped_of(call)
+    ctx.reject_unknown(call)
+    if not grouped.single or not grouped.selection or len(grouped.selection) != 1:
+        raise Unsupported("describe of a frame's groups: pandas labels the columns by a "
+                          "MultiIndex of the column and the statistic")
+    name = grouped.selection[0]
+    dtype = grouped.frame.dtype(name)
+    if dtype not in ("int", "float"):
+        raise Unsupported("describe of a column not known to hold numbers (pandas describes "
+                          "text, True/False and dates with other statistics)")
+    ctx.lower("a frame without rows: pandas describes it with an unnamed empty index (no key "
+              "column, as_index=False too), where porter keeps the key columns", 0.9)
+    values = emit.col(name)
+    if dtype == "float":
+        values = values.method("fill_nan", None)  # NaN is a missing value to pandas
+    as_float = emit.atom("pl.Float64")
+    stats: list[tuple[str, Code]] = [
+        ("count", values.method("count").method("cast", as_float)),
+        # each group is a Series described by Series.describe: numpy's pairwise sums and the
+        # two-pass std of nanops (pandas_reduce), not groupby.std's running sums
+        ("mean", pandas_reduce(values.method("cast", as_float), "mean")),
+        ("std", pandas_reduce(values.method("cast", as_float), "std")),
+        ("min", values.method("min").method("cast", as_float)),
+        # numpy's interpolation to the last bit, and the sign of a zero (pandas_quantile)
+        ("25%", emit.call(QUANTILE_FUNCTION, values, 0.25)),
+        ("50%", emit.call(QUANTILE_FUNCTION, values, 0.5)),
+        ("75%", emit.call(QUANTILE_FUNCTION, values, 0.75)),
+        ("max", values.method("max").method("cast", as_float)),
+    ]
+    names = [label for label, _ in stats]
+    exprs = [expr.method("alias", label) for label, expr in stats]
+    return aggregate(grouped, exprs, names, ctx, dtypes=["float"] * len(names))
+
+
 @rule("series.quantile")
 def series_quantile(call: PandasCall, ctx: RuleContext) -> Value:
     """Series.quantile(q) -> select(pandas_quantile(expr, q)).collect().item().
@@ -2108,14 +2326,21 @@ def _check_columns_key(frame: Frame, columns: str) -> None:
 
 
 def pivot_sorted(code: Code, on: str, keys: list[str], values: str | list[str], fill: Any,
-                 float_when_missing: bool) -> Code:
+                 float_when_missing: bool, dates_as_text: str | None = None) -> Code:
     """The groups (one row per combination) collected and pivoted as pandas lays the table
     out: the new columns in the order of their values (the pivot meets them sorted), the rows
     in the order of the keys; `fill` for a combination no row has, or else, for integer cells
-    (`float_when_missing`), every cell float when one is missing (pandas_unstacked)."""
+    (`float_when_missing`), every cell float when one is missing (pandas_unstacked).
+    `dates_as_text`: the key's dates written with this strftime format once sorted, the
+    names the script gives the columns next (pandas_dates_as_text: two dates written alike
+    stop the script, where pandas keeps two columns of one name)."""
     index: str | list[str] = keys[0] if len(keys) == 1 else keys
-    code = code.method("sort", on).method("collect").method(
-        "pivot", on=on, index=index, values=values).method("sort", index)
+    code = code.method("sort", on).method("collect")
+    if dates_as_text is not None:
+        from porter.rules.datetimes import polars_strftime
+        code = code.method("pipe", emit.atom(DATES_AS_TEXT_FUNCTION), on,
+                           polars_strftime(dates_as_text))
+    code = code.method("pivot", on=on, index=index, values=values).method("sort", index)
     if fill is not None:
         return code.method("fill_null", fill)
     if float_when_missing:
@@ -2146,7 +2371,7 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     keys; fill_value fills the missing cells; without it, sum, count, min and max of numbers
     turn every cell float when one is missing, as pandas does (pandas_unstacked decides on the
     pivoted table); the index keys stay label columns; margins=True of one text index key,
-    of whole numbers or a count (pandas_pivot_margins: the total column and row last, computed
+    of whole numbers or a count (pandaspivot_margins: the total column and row last, computed
     as pandas computes them).
     Caveats: one values column and one columns key; sum, min and max of a column not known to
     be numbers without fill_value, margins of several index keys, of a key not known to be
@@ -2174,7 +2399,18 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("values given as a list: pandas keeps two levels of column labels")
     if not isinstance(columns, str) or not isinstance(values, str):
         raise Unsupported("one values column and one columns key only")
-    _check_columns_key(frame, columns)
+    dates_as_text = None
+    if frame.dtype(columns) in ("datetime", "date"):
+        # the dates cannot name Polars columns; the text the next statement makes of them can
+        dates_as_text = _columns_formatted_next(call, ctx)
+        if call.const("margins", None, False):
+            raise Unsupported("margins of a date columns key: pandas adds its name to the dates")
+    if dates_as_text is None:
+        _check_columns_key(frame, columns)
+    elif not {"Y", "m", "d"} <= set(re.findall(r"%(.)", dates_as_text.replace("%%", ""))):
+        ctx.lower("two dates the format writes alike (without the year, month and day) make "
+                  "pandas keep two columns of one name; the conversion stops with an error "
+                  "(pandas_dates_as_text)", 0.9)
     keys = [index] if isinstance(index, str) else list(index or [])
     if not keys or not all(isinstance(k, str) for k in keys):
         raise Unsupported("a pivot without index keys")
@@ -2182,14 +2418,17 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     margins_name = call.const("margins_name", None, "All", kinds=(str,))
     if not call.const("dropna", None, True) or not call.const("sort", None, True):
         raise Unsupported("dropna=False or sort=False")
+    how = how_name(call.arg("aggfunc", 3)) if call.has("aggfunc", 3) else "mean"
+    plain = ("str", "int", "float", "bool", "date", "datetime")
     if call.const("observed", None, True) is not True and not all(
-            frame.dtype(k) in ("str", "int", "float", "bool", "date", "datetime")
-            for k in (*keys, columns)):
+            frame.dtype(k) in plain for k in (*keys, columns)):
+        if how == "count" and frame.dtype(columns) == "enum" and not margins \
+                and all(frame.dtype(k) in plain for k in keys):
+            return _pivot_count_every_category(frame, keys, columns, values, ctx)
         # pandas then keeps every category of a Categorical key (pd.cut's bins), used or not:
         # rows and columns of 0 (count) or missing cells, which the pivot of the groups lacks
         raise Unsupported("observed=False keeps the unused categories of a category key "
                           "(rows and columns no row has)")
-    how = how_name(call.arg("aggfunc", 3)) if call.has("aggfunc", 3) else "mean"
     if how not in ("sum", "mean", "median", "numpy_median", "min", "max", "count"):
         raise Unsupported(f"aggfunc {how!r}")
     fill = call.const("fill_value", 4, None)
@@ -2207,46 +2446,149 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     if absent:
         raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
     groups = [*keys, columns]
-    code = agg_with_sums(frame.code.method("drop_nulls", groups).method("group_by", groups),
-                         agg_expr(emit.col(values), how, value_dtype, float32=float32_possible(ctx)))
+    code = pivot_groups(frame.code, groups, values,
+                        agg_expr(emit.col(values), how, value_dtype, float32=float32_possible(ctx)))
     if how in ("mean", "median", "numpy_median", "min", "max"):
         code = code.method("drop_nulls", values)  # pandas drops a group whose value is missing
     # count cells are integers whatever the values' type (a float column's too)
     code = pivot_sorted(code, columns, keys, values, fill,
-                        float_when_missing and (value_dtype != "float" or how == "count"))
+                        float_when_missing and (value_dtype != "float" or how == "count"),
+                        dates_as_text)
     if margins:
-        code = _pivot_margins(code, frame, keys, columns, values, how, value_dtype,
-                              margins_name, fill)
-    ctx.lower("the new columns are named by their values as text (pandas keeps the values)", 0.95)
+        code = pivot_margins(code, frame, keys, columns, values, how, value_dtype,
+                             margins_name, fill, float32_possible(ctx))
+    if dates_as_text is None:  # (else named as the next statement names them)
+        ctx.lower("the new columns are named by their values as text (pandas keeps the values)",
+                  0.95)
     # pandas code given the table finds the columns by the key's values (pv[2024])
     int_labels = (*keys, *([margins_name] if margins else [])) \
         if frame.dtype(columns) == "int" else None
+    # the index keys keep their type (the total row's label is text, as the keys); the
+    # total column is float where every cell is (floats summed, means)
+    dtypes = [(k, frame.dtype(k)) for k in keys if frame.dtype(k) is not None]
+    if margins and (how in ("mean", "median", "numpy_median") or value_dtype == "float"
+                    and how in ("sum", "min", "max")):
+        dtypes.append((margins_name, "float"))
     return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False,
-                 int_labels_except=int_labels, columns_name=columns)
+                 int_labels_except=int_labels, columns_name=columns, dtypes=tuple(dtypes),
+                 dates_as_text=dates_as_text)
 
 
-def _pivot_margins(table: Code, frame: Frame, keys: list[str], columns: str, values: str,
-                   how: str, dtype: str | None, name: str, fill: Any) -> Code:
+def _columns_formatted_next(call: PandasCall, ctx: RuleContext) -> str | None:
+    """The strftime format of `t.columns = t.columns.strftime("<format>")` where that is the
+    statement right after each `t = <this pivot>` of the script (the same call written
+    elsewhere too), or None. Checked on the script's text: only then does the pivot name its
+    date columns by that text at once, which nothing reads before the statement renames them."""
+    module = ctx.python_module
+    if module is None or call.node is None:
+        return None
+    try:
+        wanted = ast.unparse(ast.parse(cst.Module([]).code_for_node(call.node).strip(),
+                                       mode="eval").body)
+    except SyntaxError:
+        return None
+    found: set[str | None] = set()
+    for node in ast.walk(module):
+        for name in ("body", "orelse", "finalbody"):
+            statements = getattr(node, name, None)
+            if not isinstance(statements, list):
+                continue
+            for at, stmt in enumerate(statements):
+                if not (isinstance(stmt, ast.Assign) and len(stmt.targets) == 1
+                        and isinstance(stmt.targets[0], ast.Name)
+                        and ast.unparse(stmt.value) == wanted):
+                    continue
+                after = statements[at + 1] if at + 1 < len(statements) else None
+                found.add(_strftime_of_columns(after, stmt.targets[0].id))
+    if len(found) != 1:
+        return None
+    return found.pop()
+
+
+def _strftime_of_columns(stmt: ast.stmt | None, name: str) -> str | None:
+    """The format of `name.columns = name.columns.strftime("<format>")`, or None."""
+    columns = f"{name}.columns"
+    if not (isinstance(stmt, ast.Assign) and len(stmt.targets) == 1
+            and ast.unparse(stmt.targets[0]) == columns and isinstance(stmt.value, ast.Call)):
+        return None
+    call = stmt.value
+    if not (isinstance(call.func, ast.Attribute) and call.func.attr == "strftime"
+            and ast.unparse(call.func.value) == columns and len(call.args) == 1
+            and not call.keywords and isinstance(call.args[0], ast.Constant)
+            and isinstance(call.args[0].value, str)):
+        return None
+    return call.args[0].value
+
+
+def _pivot_count_every_category(frame: Frame, keys: list[str], columns: str, values: str,
+                                ctx: RuleContext) -> Value:
+    """pivot_table(index=keys, columns=c, values=v, aggfunc="count", observed=False) where c
+    holds the categories of pd.cut / pd.qcut labels (an Enum): pandas counts v for every
+    combination of the index keys met in a row (none of them missing; the row's c or v may
+    be) with every category of c, used or not: a column per category in the categories'
+    order, 0 where no value is counted, int64 (fill_value never applies: no cell is missing).
+    The combinations crossed with the categories, the counts joined on them, then pivoted."""
+    absent = [c for c in (*keys, columns, values)
+              if frame.columns is not None and c not in frame.columns]
+    if absent:
+        raise Unsupported(f"columns {absent} are not in the frame (pandas raises KeyError)")
+    if len(set(keys)) != len(keys) or columns in keys or values in (*keys, columns):
+        raise Unsupported("a key named twice, or the values column among the keys")
+    ctx.lower("a frame without rows gives pandas an empty table without columns; here the "
+              "index keys' columns", 0.95)
+    rows = frame.code.method("drop_nulls", keys).method("select", *keys).method(
+        "unique", maintain_order=True)
+    # the Enum's categories, in their order, from the frame's schema (no data read)
+    kind = frame.code.method("collect_schema").index(columns)
+    every = emit.pl("LazyFrame", {columns: kind.attr("categories")}).method("cast", {columns: kind})
+    counts = frame.code.method("drop_nulls", [*keys, columns]).method(
+        "group_by", [*keys, columns]).method(
+        "agg", emit.col(values).method("count").method("cast", emit.atom("pl.Int64")))
+    grid = rows.method("join", every, how="cross", maintain_order="left_right").method(
+        "join", counts, on=[*keys, columns], how="left", nulls_equal=True,
+        maintain_order="left").method("with_columns", emit.col(values).method("fill_null", 0))
+    # every category of every combination is there: the pivot meets them in the categories'
+    # order, and names the new columns by their text
+    code = pivot_sorted(grid, columns, keys, values, None, False)
+    ctx.lower("the new columns are named by their values as text (pandas keeps the values)", 0.95)
+    return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False,
+                 columns_name=columns)
+
+
+def pivot_margins(table: Code, frame: Frame, keys: list[str], columns: str, values: str,
+                   how: str, dtype: str | None, name: str, fill: Any, float32: bool) -> Code:
     """margins=True: the pivoted table given to pandas_pivot_margins, which adds the total
     column and row `name` as pandas computes them (each over the rows where neither key nor
     the value is missing, a row of totals last and a column last, a missing total making an
-    integer column float)."""
-    if len(keys) != 1 or frame.dtype(keys[0]) != "str":
-        raise Unsupported("margins with several index keys or a key not known to be text "
-                          "(the total row's label goes into it)")
-    if how == "count" and dtype is None or how != "count" and dtype != "int":
-        # float totals: pandas adds floats in its own order (a compensated sum per group)
-        raise Unsupported(f"margins of {how} of a column not known to be whole numbers")
-    total = agg_expr(emit.col(values), how, dtype)
-    if "pandas_" in total.text:
-        raise Unsupported(f"margins of {how}")
+    integer column float). Sums and means of floats are added as pandas adds them: each row's
+    and column's as its groupby does (pandas_group_sums), the grand total as its Series.sum
+    or mean (pandas_reduce)."""
+    if not all(frame.dtype(k) == "str" for k in keys):
+        raise Unsupported("margins of an index key not known to be text (the total row's "
+                          "label goes into it, and \"\" into the other keys)")
     kwargs: dict[str, Any] = {}
+    if how == "count" and dtype is not None or how != "count" and dtype == "int" \
+            or how in ("min", "max") and dtype == "float":
+        # whole numbers are added exactly in any order; a count, min and max are exact
+        total = agg_expr(emit.col(values), how, dtype)
+        if "pandas_" in total.text:
+            raise Unsupported(f"margins of {how}")
+    elif how in ("sum", "mean") and dtype == "float" and not float32:
+        # pandas adds each row's and column's floats as its groupby does, the grand total as
+        # its Series.sum / mean does (numpy's pairwise sum): each order ends in other digits
+        total = pandas_reduce(emit.col(values), how)
+        kwargs["group_sums"] = emit.atom(GROUP_SUMS_FUNCTION)
+        if how == "mean":
+            kwargs["mean"] = True
+    else:
+        raise Unsupported(f"margins of {how} of a column not known to be whole numbers or "
+                          "floats (floats: sum, mean, min, max and count)")
     if name != "All":
         kwargs["name"] = name
     if fill is not None:
         kwargs["fill_value"] = fill
-    return table.method("pipe", emit.atom(MARGINS_FUNCTION), frame.code, keys[0], columns,
-                        values, total, **kwargs)
+    return table.method("pipe", emit.atom(MARGINS_FUNCTION), frame.code, emit.names_arg(keys),
+                        columns, values, total, **kwargs)
 
 
 _PIVOT_ROW_FUNCTIONS = ("sum", "mean", "median", "min", "max", "count")
@@ -2647,8 +2989,16 @@ def pivot(call: PandasCall, ctx: RuleContext) -> Value:
     # Polars names the column of a missing key "null"; pandas' label is NaN, whose text is "nan"
     code = code.method("rename", {"null": "nan"}, strict=False)
     int_labels = (index,) if frame.dtype(columns) == "int" else None
-    return Frame(code.method("lazy"), columns=None, index=(index,), labels_intact=False,
-                 int_labels_except=int_labels, columns_name=columns)
+    code = code.method("lazy")
+    # the index key keeps its type (a date key's labels are dates: df.index.strftime); the
+    # cells are the values, floats staying floats (whole numbers are float where a
+    # combination is missing, which the data decides)
+    dtypes = ((index, frame.dtype(index)),) if frame.dtype(index) is not None else ()
+    cells = (code.text, "float") if value_dtype == "float" else (
+        (code.text, None) if value_dtype == "int" else None)
+    return Frame(code, columns=None, index=(index,), labels_intact=False, dtypes=dtypes,
+                 int_labels_except=int_labels, columns_name=columns, number_cells=cells,
+                 columns_kind=frame.dtype(columns))
 
 
 # -- groupby().apply(f) where f makes one row of aggregates ---------------------------------------

@@ -292,41 +292,76 @@ def pandas_unstacked(table, keys):
 """
 
 # A function, defined once at the top of a converted script, that adds pivot_table's margins
-# (margins=True) to a pivoted table of one index key and one columns key, as pandas adds them.
+# (margins=True) to a pivoted table of one or more index keys and one columns key, as pandas
+# adds them.
 MARGINS_FUNCTION = "pandas_pivot_margins"
 MARGINS_DEFINITION = """\
-def pandas_pivot_margins(table, frame, index, columns, values, total, name="All", fill_value=None):
+def pandas_pivot_margins(table, frame, index, columns, values, total, name="All", fill_value=None,
+                         group_sums=None, mean=False):
     \"\"\"pivot_table(margins=True): a last column `name` with each row's total and a last row
-    `name` with each column's total and the grand total, each `total` (the aggregation of
-    `values`) over the rows of `frame` where neither key nor the value is missing, as pandas
-    computes them. A column without a total gets `fill_value` in the last row; a row without
-    one keeps its total missing; an integer column holding a missing value becomes float, as
-    in pandas. A table without rows stays as it is.\"\"\"
+    with each column's total and the grand total, each `total` (the aggregation of `values`)
+    over the rows of `frame` where no key and not the value is missing, as pandas computes
+    them. `index` is one key or a list of keys: the last row holds `name` in the first and ""
+    in the others, as pandas labels it. Floats (`group_sums` given, pandas_group_sums): each
+    row's and column's total is added as pandas' groupby adds it (numpy's sum where those
+    rows come sorted by the keys, else a compensated sum in row order; `mean`: over the
+    count), and `total` is the grand total (pandas' Series.sum or mean). A column without a
+    total gets `fill_value` in the last row; a row without one keeps its total missing; an
+    integer column holding a missing value becomes float, as in pandas. A table without rows
+    stays as it is.\"\"\"
+    keys = [index] if isinstance(index, str) else list(index)
     if table.is_empty():
         return table
-    if (table[index] == name).any() or name in table.drop(index).columns:
+    if any((table[key] == name).any() for key in keys) or name in table.drop(keys).columns:
         raise ValueError(f'Conflicting name "{name}" in margins')
-    kept = frame.drop_nulls([index, columns, values])
-    per_row = kept.group_by(index).agg(total.alias(name))
-    per_column = (
-        kept.group_by(columns).agg(total).sort(columns)
-        .with_columns(pl.col(columns).cast(pl.String))
-    )
-    per_row, per_column, grand = pl.collect_all([per_row, per_column, kept.select(total.alias(name))])
+    kept = frame.drop_nulls([*keys, columns, values])
+
+    def totals(by, alias):
+        if group_sums is None:
+            return kept.group_by(by).agg(total.alias(alias))
+        # pandas adds a group's floats one of two ways, chosen by how the rows come
+        ordered = pl.col(by[0]).is_sorted() if len(by) == 1 else pl.struct(by).is_sorted()
+        return (
+            kept.select(*by, pl.col(values).alias(alias), ordered.alias("_porter_in_key_order"))
+            .group_by(by).agg(pl.col(alias), pl.col("_porter_in_key_order").first())
+            .select(*by, group_sums(pl.col(alias), mean=mean,
+                                    in_key_order=pl.col("_porter_in_key_order")))
+        )
+
+    per_row = totals(keys, name)
+    per_column = totals([columns], values).sort(columns).with_columns(pl.col(columns).cast(pl.String))
+    grand = kept.select(total.alias(name))
+    per_row, per_column, grand = pl.collect_all([per_row, per_column, grand])
     last = per_column.transpose(column_names=columns)
-    absent = [c for c in table.columns if c != index and c not in last.columns]
+    absent = [c for c in table.columns if c not in keys and c not in last.columns]
+    labels = pl.DataFrame({key: [name if i == 0 else ""] for i, key in enumerate(keys)})
     last = pl.concat([
-        pl.DataFrame({index: [name]}), last.with_columns(pl.lit(fill_value).alias(c) for c in absent),
-        grand,
+        labels, last.with_columns(pl.lit(fill_value).alias(c) for c in absent), grand,
     ], how="horizontal")
     table = pl.concat([
-        table.join(per_row, on=index, how="left", maintain_order="left"),
+        table.join(per_row, on=keys, how="left", maintain_order="left"),
         last.select(table.columns + [name]),
     ], how="vertical_relaxed")
     return table.with_columns(
         pl.col(c).cast(pl.Float64) for c, t in table.schema.items()
         if t.is_integer() and table[c].has_nulls()
     )
+"""
+
+# A function, defined once at the top of a converted script, that writes the date key of a
+# pivot's groups as the text the script names the pivoted columns by next.
+DATES_AS_TEXT_FUNCTION = "pandas_dates_as_text"
+DATES_AS_TEXT_DEFINITION = """\
+def pandas_dates_as_text(groups, key, fmt):
+    \"\"\"The groups of a pivot with their date `key` written with the strftime format `fmt`
+    (Polars' to_string of each date): the names the script gives the pivoted columns next
+    (df.columns = df.columns.strftime(fmt)). Two dates written alike would make pandas keep
+    two columns of one name, which a Polars frame cannot hold: that stops here.\"\"\"
+    dates = groups.get_column(key).unique()
+    if dates.dt.to_string(fmt).n_unique() != dates.len():
+        raise ValueError(f"two dates are written alike with {fmt!r}: pandas keeps two columns "
+                         "of one name, a Polars frame cannot")
+    return groups.with_columns(pl.col(key).dt.to_string(fmt))
 """
 
 # A function, defined once at the top of a converted script, that adds crosstab's margins

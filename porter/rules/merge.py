@@ -19,7 +19,7 @@ from porter.rules import rule
 from porter.translate import handover
 from porter.translate.context import (
     PandasCall, RuleContext, Unsupported, floats_where_missing, nullable_mark,
-    labelled_frame, row_labels_carried,
+    ROW_LABELS, labelled_frame, row_labels_carried,
 )
 from porter.translate.values import NOT_NULLABLE, Column, Frame, FrameList, Opaque, Scalar, Value
 
@@ -121,6 +121,14 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
         kwargs = {k: v for k, v in args.kwargs.items() if k not in ("left_index", "right_index")}
         kwargs["on"] = Opaque(emit.lit(keys), const=keys)
         args = PandasCall(args.receiver, args.name, (), kwargs, args.node)
+    labels_from_left = carried = False
+    if args.const("right_index", None, False) and not args.const("left_index", None, False) \
+            and args.has("left_on") and not args.has("on") and not args.has("right_on"):
+        right, args = _left_on_right_index(left, right, args, ctx)
+        labels_from_left = True
+        if row_labels_carried(left):
+            carried = True
+            left = _left_labels_as_column(left)
     if args.const("left_index", None, False) or args.const("right_index", None, False):
         raise ctx.todo("left_index/right_index join on row labels: make the labels a column "
                        "(with_row_index where the frame was made) and join on it")
@@ -242,13 +250,83 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
     if nullable is not None:
         marks = {"nullable_ints": tuple((c, m) for c, m in nullable.items() if m),
                  "unsure_ints": tuple(c for c, m in nullable.items() if m is None)}
-    return Frame(code, columns=columns, labels_intact=True, float_ints=float_ints, **marks,
-                 index=lside.index if lside.index and rside.index else (),
+    # left_on= with right_index=True: pandas labels each row with its left row's label
+    # (repeated where a key matches several rows), not with new row numbers
+    index = lside.index if lside.index and rside.index else ()
+    if carried:  # the left rows' labels, carried in the column "index" (pandas' unnamed index)
+        index = (ROW_LABELS,)
+    return Frame(code, columns=columns, labels_intact=not labels_from_left, float_ints=float_ints, **marks,
+                 index=index, index_unnamed=carried,
                  dtypes=tuple((c, dtypes[c]) for c in columns if c in dtypes)
                  if columns is not None else tuple(dtypes.items()))
 
 
 _SIDE_MARKS = ("_in_left", "_in_right")
+
+
+def _left_on_right_index(left: Frame, right: Frame, args: PandasCall,
+                         ctx: RuleContext) -> tuple[Frame, PandasCall]:
+    """merge(left_on=k, right_index=True): the right frame's one index level made a column
+    named k, and the merge read as on=k.
+
+    pandas matches the left column k with the right frame's labels and keeps the left's k
+    (the right's labels are not written as a column): the rows, their order and the columns
+    are those of a merge on=k where the right's key column is its labels under the name k.
+    The row labels are the left rows' (repeated where a key matches several rows), which the
+    returned frame says are not 0..n-1. Only left and inner merges of a left frame without an
+    index, and a right frame labelled by one named key without a column named k."""
+    how = args.const("how", None, "inner", kinds=(str,))
+    left_on = args.const("left_on", None, None)
+    if isinstance(left_on, list) and len(left_on) == 1:
+        left_on = left_on[0]
+    if how not in ("left", "inner"):
+        raise ctx.todo(f"left_on= with right_index=True and how={how!r}: pandas' key column "
+                       "and labels then mix both sides; reset_index() the right frame and merge "
+                       "on columns")
+    if not isinstance(left_on, str):
+        raise ctx.todo("left_on= with right_index=True on several keys or a computed one")
+    if left.index and not row_labels_carried(left):
+        raise ctx.todo("left_on= with right_index=True of a left frame with an index: "
+                       "reset_index() it first")
+    if not left.labels_intact and not row_labels_carried(left):
+        # pandas labels the rows with the left's labels, which a filter or sort made: the TODO
+        # has the left frame carry them (engine.labels_as_column) and the next pass ports this
+        raise ctx.todo("left_on= with right_index=True labels the rows with the left frame's "
+                       "labels, the original row numbers after a filter or sort: keep them as "
+                       "a column (with_row_index) where the left frame is made")
+    if len(right.index) != 1 or right.index_unnamed or row_labels_carried(right) \
+            or right.columns is None:
+        raise ctx.todo("right_index=True of a frame not labelled by one named key column: "
+                       "reset_index() the right frame and merge on columns")
+    label = right.index[0]
+    others = [c for c in right.columns if c != label]
+    if left_on in others:
+        raise ctx.todo(f"the right frame has a column {left_on!r} too: pandas then suffixes "
+                       "the left's key and that column in a way of its own")
+    if left.columns is not None and left_on not in left.columns:
+        raise ctx.todo(f"merge key {left_on!r} is not a column of the left frame")
+    code = right.code
+    columns = tuple(right.columns)
+    dtypes = tuple(right.dtypes)
+    if label != left_on:
+        code = code.method("rename", {label: left_on})
+        columns = tuple(left_on if c == label else c for c in columns)
+        dtypes = tuple((left_on if c == label else c, t) for c, t in dtypes)
+    keyed = replace(right, code=code, columns=columns, dtypes=dtypes, index=(),
+                    labels_intact=False, grouped_rows=None, number_cells=None)
+    if row_labels_carried(left) and ROW_LABELS in others:
+        raise ctx.todo(f"the right frame has a column {ROW_LABELS!r}, the name porter gives "
+                       "the left rows' labels")
+    kwargs = {k: v for k, v in args.kwargs.items() if k not in ("left_on", "right_index")}
+    kwargs["on"] = Opaque(emit.lit(left_on), const=left_on)
+    return keyed, PandasCall(args.receiver, args.name, (), kwargs, args.node)
+
+
+def _left_labels_as_column(left: Frame) -> Frame:
+    """The left frame of merge(left_on=, right_index=True) whose row labels a filter or sort
+    left in its column "index": that column joined as any other, so that each row of the result
+    carries its left row's label, as pandas labels it."""
+    return replace(left, index=(), index_unnamed=False)
 
 
 def _labelled_alike(left: Frame, right: Frame) -> bool:
@@ -883,9 +961,13 @@ def _side_by_side(call: PandasCall, ctx: RuleContext) -> Value:
     node = call.first_node("objs")
     if not isinstance(node, (cst.List, cst.Tuple)) or len(node.elements) < 2:
         raise ctx.todo("axis=1 of Series not written out as a list: join on the label columns")
+    given = [ctx.evaluate(element.value, {}) if isinstance(element, cst.Element) else None
+             for element in node.elements]
+    same = _same_rows_side_by_side(given, ctx)
+    if same is not None:
+        return same
     pieces: list[Column] = []
-    for element in node.elements:
-        value = ctx.evaluate(element.value, {}) if isinstance(element, cst.Element) else None
+    for value in given:
         if not isinstance(value, Column) or len(value.frame.index) != 1 \
                 or value.name is None or value.name in value.frame.index:
             raise ctx.todo("axis=1 of values other than named Series labelled by one key "
@@ -933,6 +1015,46 @@ def _side_by_side(call: PandasCall, ctx: RuleContext) -> Value:
                   "where a label finds no value, Polars keeps its type", 0.95)
     return Frame(code, columns=(key, *names), index=(key,), index_unnamed=shared is None,
                  labels_intact=False, dtypes=tuple(dtypes.items()))
+
+
+def _same_rows_side_by_side(given: list[Value | None], ctx: RuleContext) -> Value | None:
+    """pd.concat([df, s, dummies], axis=1) of frames and named Series that all hold the same
+    rows in the same order (a frame, columns computed from it, pd.get_dummies of one of its
+    columns) -> pl.concat(how="horizontal"). Their labels are the same labels in the same
+    order (repeated ones too, after an explode), so pandas puts them side by side as they
+    are. None when the pieces are not all such."""
+    pieces: list[tuple[Code, tuple[str, ...] | None, Frame]] = []
+    for value in given:
+        if isinstance(value, Frame):
+            pieces.append((value.code, value.columns, value))
+        elif isinstance(value, Column) and value.name is not None and not value.element:
+            pieces.append((handover.series_frame(value), (value.name,), value.frame))
+        else:
+            return None
+    frames = [f for _, _, f in pieces]
+    if len({f.rows for f in frames}) != 1 or any(f.index for f in frames):
+        return None
+    known = [c for _, columns, _ in pieces for c in columns or ()]
+    if len(set(known)) != len(known):
+        raise ctx.todo("frames side by side holding a column of one name (pandas keeps both, "
+                       "Polars cannot)")
+    unknown = any(columns is None for _, columns, _ in pieces)
+    if unknown:
+        ctx.lower("a piece whose columns porter does not know: a name two pieces share makes "
+                  "Polars raise where pandas keeps both columns", 0.95)
+    dtypes: dict[str, str] = {}
+    for _, columns, frame in pieces:
+        for name in columns or ():
+            if frame.dtype(name) is not None:
+                dtypes[name] = frame.dtype(name)  # type: ignore[assignment]
+    for value in given:
+        if isinstance(value, Column) and value.dtype is not None and value.name is not None:
+            dtypes[value.name] = value.dtype
+    code = emit.pl("concat", [code for code, _, _ in pieces], how="horizontal")
+    first = frames[0]
+    return Frame(code, columns=None if unknown else tuple(known), dtypes=tuple(dtypes.items()),
+                 rows=first.rows, labels_intact=first.labels_intact,
+                 sites=tuple(s for f in frames for s in f.sites))
 
 
 # the key column of labels whose index pandas leaves unnamed (reset_index() names it "index")

@@ -24,7 +24,9 @@ _ROW = "__row"  # the row number drop_duplicates(keep="last") sorts the kept row
 @rule("frame.drop_duplicates")
 def drop_duplicates(call: PandasCall, ctx: RuleContext) -> Value:
     """df.drop_duplicates(subset, keep) -> .unique(subset, keep=..., maintain_order=True);
-    keep="last" numbers the rows, keeps the last of each unordered and sorts back by number.
+    keep="last" -> .filter(pl.col(k).is_last_distinct()) (pl.struct of several), or, where
+    the columns are not known, numbers the rows, keeps the last of each unordered and sorts
+    back by number.
 
     Handles: which row of a duplicate group is kept and the original row order (Polars'
     default keep="any" and unordered output differ); missing values are equal to each other
@@ -47,7 +49,14 @@ def drop_duplicates(call: PandasCall, ctx: RuleContext) -> Value:
             raise Unsupported("a frame with an index of its own whose columns are not known "
                               "(pass subset=[...])")
         names = [c for c in frame.columns if c not in frame.index]
-    if keep == "last":
+    if keep == "last" and names:
+        # the rows that are the last of their values, in their order: a filter by
+        # is_last_distinct (missing values equal to each other, as in pandas), which hashes
+        # the subset's columns only; numbering the rows for an unordered unique and sorting
+        # them back took seven times as long on a million rows
+        key = emit.col(names[0]) if len(names) == 1 else emit.pl("struct", *names)
+        code = frame.code.method("filter", key.method("is_last_distinct"))
+    elif keep == "last":
         # unique(keep="last", maintain_order=True) holds several copies of the whole frame
         # (three times the peak of keep="first" on a 2,000,000-row frame of nine columns);
         # an unordered unique of numbered rows, sorted back by the number, keeps the same
@@ -353,6 +362,11 @@ def rename_axis(call: PandasCall, ctx: RuleContext) -> Value:
                      columns=tuple(mapping.get(c, c) for c in frame.columns)
                      if frame.columns is not None else None,
                      dtypes=tuple((mapping.get(c, c), t) for c, t in frame.dtypes))
+    from porter.translate.context import number_cells
+    pivoted, cells = number_cells(frame)
+    if pivoted:
+        # a pivoted table with its labels renamed: its cells are still the numbers they were
+        renamed = replace(renamed, number_cells=(code.text, cells))
     if isinstance(receiver, Column):
         return Column(receiver.code, frame=renamed, name=receiver.name, dtype=receiver.dtype,
                       refs=receiver.refs)
@@ -398,6 +412,45 @@ def series_droplevel(call: PandasCall, ctx: RuleContext) -> Value:
                   dtypes=tuple((c, t) for c, t in frame.dtypes if c in (*kept, name)),
                   grouped_rows=None, levels_as_met=False, levels_with_missing=False)
     return Column(column.code, frame=rows, name=name, dtype=column.dtype,
+                  null_is_false=column.null_is_false, float_int=column.float_int,
+                  nullable_int=column.nullable_int)
+
+
+@rule("series.swaplevel")
+def series_swaplevel(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.swaplevel(i, j) of a Series labelled by several key columns -> the key columns in
+    their new order (select), the rows as they were.
+
+    Handles: levels by name or position (-2 and -1 by default); the rows keep their order,
+    no longer sorted by the first key (sort_index() sorts them by the new order).
+    Caveats: a Series whose labels are row numbers or unnamed keys, and a computed Series
+    without a name, are TODOs."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "i", "j", positional=2)
+    frame = column.frame
+    keys = list(frame.index)
+    if len(keys) < 2 or frame.index_unnamed or row_labels_carried(frame):
+        raise ctx.todo("a Series labelled by other than several named key columns")
+    picked = []
+    for name, position, default in (("i", 0, -2), ("j", 1, -1)):
+        level = call.const(name, position, default, kinds=(str, int))
+        if isinstance(level, int) and not isinstance(level, bool) and -len(keys) <= level < len(keys):
+            picked.append(level % len(keys))
+        elif isinstance(level, str) and keys.count(level) == 1:
+            picked.append(keys.index(level))
+        else:
+            raise ctx.todo(f"level {level!r} is not a level of the index (pandas raises)")
+    first, second = picked
+    keys[first], keys[second] = keys[second], keys[first]
+    name = column.name
+    if name is None or name in keys or column.code.text != emit.col(name).text:
+        raise ctx.todo("a computed Series: name it and reset_index() first")
+    code = frame.code.method("select", *keys, name)
+    swapped = derive(frame, code, same_rows=True, index=tuple(keys), columns=(*keys, name),
+                     dtypes=tuple((c, t) for c, t in frame.dtypes if c in (*keys, name)),
+                     grouped_rows=None)
+    return Column(column.code, frame=swapped, name=name, dtype=column.dtype,
                   null_is_false=column.null_is_false, float_int=column.float_int,
                   nullable_int=column.nullable_int)
 
@@ -848,8 +901,9 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
     is stable, so rows of one label keep their order, as maintain_order=True).
     Caveats: labels after a filter or a sort (row numbers porter does not keep), labels that
     may repeat (pandas' quicksort puts ties in no set order), several keys of other types,
-    axis=1, level=,
-    key= and na_position="first" are TODOs. sort_index(by=...) of older pandas is
+    axis=1, key= and na_position="first" are TODOs. level= (a name or position, or a list of
+    them) sorts stably by those keys: ascending a list of as many, each its own way; one
+    True/False, then by the other keys too (sort_remaining=True), all that way. sort_index(by=...) of older pandas is
     sort_values (rules/legacy.py).
     """
     from porter.rules.selection import unique_key
@@ -861,12 +915,19 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
         receiver = values_fixed(receiver)  # a running sum keeps the values of the rows in order
     frame = receiver.frame if isinstance(receiver, Column) else receiver
     assert isinstance(frame, Frame)
-    ctx.reject_unknown(call, "axis", "ascending", "kind", "na_position", "inplace",
-                       "ignore_index")
+    ctx.reject_unknown(call, "axis", "level", "ascending", "kind", "na_position", "inplace",
+                       "ignore_index", "sort_remaining")
     if call.const("axis", None, 0, kinds=(int, str)) not in (0, "index", "rows"):
         raise ctx.todo("sorting the columns by name (axis=1): select them in sorted order")
     if call.const("na_position", None, "last", kinds=(str,)) != "last":
         raise ctx.todo('na_position="first"')
+    if call.has("level"):
+        by_levels = _sort_index_levels(call, frame, ctx)
+        if by_levels is not None:
+            sorted_frame = derive(frame, by_levels, same_rows=False, rows=fresh_token())
+            if isinstance(receiver, Column):
+                return replace(receiver, frame=sorted_frame, sites=())
+            return sorted_frame
     ascending = call.const("ascending", None, True, kinds=(bool,))
     if not frame.index and frame.labels_intact:
         # labels 0..n-1 in order: sorted already (reversed when descending)
@@ -916,6 +977,55 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(receiver, Column):
         return replace(receiver, frame=sorted_frame, sites=())
     return sorted_frame
+
+
+def _sort_index_levels(call: PandasCall, frame: Frame, ctx: RuleContext) -> Code | None:
+    """sort_index(level=[...], ascending=[...]) of labels of several keys (a MultiIndex): a
+    stable sort by the keys named, each its own way (pandas leaves the other keys in their
+    order then); with ascending one True/False, by the keys named and then the others
+    (sort_remaining=True), all that way. A missing key last in its level either way. None
+    where the level names the only key of a table labelled by one (sorted as without
+    level=)."""
+    from porter.rules.selection import index_level
+    levels = call.const_values("level", None, kinds=(str, int))
+    assert levels is not None
+    keys = [index_level(frame, Opaque(emit.lit(v), const=v)) for v in levels]
+    if any(k is None for k in keys) or len(set(keys)) != len(keys):
+        raise ctx.todo("a level that is not one of the labels' keys (or one named twice)")
+    if len(frame.index) == 1:
+        if not isinstance(call.const("ascending", None, True), bool):
+            raise ctx.todo("ascending given as a list for one level")
+        return None
+    if frame.index_unnamed or not all(
+            frame.dtype(k) in ("str", "int", "bool", "date", "datetime") for k in frame.index):
+        raise ctx.todo("labels of several keys of types porter does not sort as pandas does")
+    ascending = call.const("ascending", None, True, kinds=(bool, list, tuple))
+    if call.const("ignore_index", None, False, kinds=(bool,)):
+        raise ctx.todo("ignore_index=True: drop the key columns after the sort")
+    if not isinstance(ascending, bool) and frame.levels_with_missing:
+        raise ctx.todo("a missing key kept as a level value (groupby(dropna=False))")
+    if isinstance(ascending, bool) and not ascending and frame.levels_with_missing:
+        raise ctx.todo("a missing key kept as a level value (groupby(dropna=False)) sorted "
+                       "descending")
+    order = [k for k in keys if k is not None]
+    if isinstance(ascending, bool):
+        # pandas (MultiIndex.sortlevel) sorts by the levels named, then the others
+        # (sort_remaining=True), all one way; a missing key last either way
+        if call.const("sort_remaining", None, True, kinds=(bool,)):
+            order += [k for k in frame.index if k not in order]
+        if not ascending and frame.grouped_rows != frame.rows:
+            ctx.lower("rows of one label (labels that repeat) keep their order; pandas "
+                      "reverses the ascending order, which puts them the other way round", 0.95)
+        ways = [ascending] * len(order)
+    else:
+        # a list: pandas sorts by the levels named only, each its own way (sort_remaining is
+        # not read), stably
+        ways = list(ascending)
+        if len(ways) != len(order) or not all(isinstance(w, bool) for w in ways):
+            raise ctx.todo("ascending as a list of another length than level (pandas raises)")
+    # pandas sorts the levels' codes with a stable lexsort: rows of one label keep their order
+    return frame.code.method("sort", order, descending=[not w for w in ways], nulls_last=True,
+                             maintain_order=True)
 
 
 # -- reindex ------------------------------------------------------------------------------------
@@ -992,6 +1102,79 @@ def series_reindex(call: PandasCall, ctx: RuleContext) -> Value:
                    dtypes=((labels, "datetime"), (value, dtype)), labels_intact=False,
                    rows=rows, grouped_rows=rows)
     return Column(emit.col(value), frame=result, name=column.name, dtype=dtype)
+
+
+@rule("frame.reindex")
+def frame_reindex(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.reindex(days, fill_value=0) -> pl.LazyFrame({"index": days}).join(df, how="left"),
+    the rows that found none filled.
+
+    On a table labelled by one date key of distinct values (an unstack by day, a groupby's
+    table), days a pd.date_range written in the script: one row per timestamp of the range,
+    in its order; a timestamp the table has no row for gets fill_value in every column.
+
+    Handles: the table's labels the range does not hold are left out; a missing value the
+    table had stays missing (fill_value fills the new rows only); the columns keep their
+    name (an unstack's key); the result is labelled by the range, whose name is None
+    (rename_axis names it, reset_index() calls it "index").
+    Caveats: other targets, columns=, no fill_value, method=, limit=, tolerance=, tables whose
+    labels may repeat (pandas raises) and columns that may hold other than numbers are TODOs."""
+    from porter.rules.construct import DateRange
+    from porter.rules.selection import unique_key
+    from porter.translate.context import number_cells
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "index", "labels", "fill_value", positional=1)
+    target = call.args[0] if call.args else call.kwargs.get("index", call.kwargs.get("labels"))
+    if not (isinstance(target, Opaque) and isinstance(target.const, DateRange)
+            and type(target.const) is DateRange):
+        raise ctx.todo("a target other than a pd.date_range written in the script: a join on a "
+                       "frame of the labels")
+    if not unique_key(frame) or frame.dtype(frame.index[0]) != "datetime":
+        raise ctx.todo("a table not labelled by one date key of distinct values: pandas raises "
+                       "for labels that repeat")
+    fill = call.const("fill_value", None, None, kinds=(int, float, type(None)))
+    if fill is None or isinstance(fill, bool):
+        raise ctx.todo("no fill_value (or one that is not a number): pandas makes the new rows "
+                       "NaN and turns integers float")
+    key = frame.index[0]
+    labels = "index"  # the range's name is None: pandas' unnamed index
+    found = "_porter_found"
+    pivoted, kind = number_cells(frame)
+    if pivoted:
+        cells = None
+    elif frame.columns is not None:
+        cells = [c for c in frame.columns if c != key]
+        kinds = {frame.dtype(c) for c in cells}
+        if not cells or not kinds <= {"int", "float"}:
+            raise ctx.todo("columns that may hold other than numbers: pandas writes the fill "
+                           "value into them as it is")
+        kind = "float" if "float" in kinds else "int"
+    else:
+        raise ctx.todo("a table whose columns porter does not know")
+    if (labels in (frame.columns or ()) and labels != key) or found in (frame.columns or ()):
+        raise ctx.todo(f"a column named {labels!r} beside the labels")
+    right = frame.code
+    if key != labels:
+        right = right.method("rename", {key: labels})
+    right = right.method("with_columns", emit.pl("lit", True).method("alias", found))
+    stamps = target.code if target.code.text.isidentifier() else target.const.code
+    range_frame = emit.pl("LazyFrame", emit.atom("{" + emit.lit(labels).text + ": "
+                                                + stamps.text + "}"))
+    values = emit.pl("exclude", labels, found)
+    filled = emit.when(emit.col(found), values, fill)
+    code = range_frame.method("join", right, on=labels, how="left", maintain_order="left") \
+        .method("with_columns", filled).method("drop", found)
+    if kind == "int" and isinstance(fill, float):
+        kind = "float"
+    rows = fresh_token()
+    columns = None if cells is None else (labels, *cells)
+    dtypes = ((labels, "datetime"),) + tuple((c, "float" if isinstance(fill, float)
+                                               and frame.dtype(c) == "int" else frame.dtype(c))
+                                              for c in cells or () if frame.dtype(c))
+    return replace(frame, code=code, sites=(), columns=columns, index=(labels,),
+                   index_unnamed=True, dtypes=dtypes, labels_intact=False, rows=rows,
+                   grouped_rows=rows, number_cells=(code.text, kind) if pivoted else None)
 
 
 def _reindex_product(call: PandasCall, column: Column, target: Opaque, ctx: RuleContext) -> Value:

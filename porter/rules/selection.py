@@ -366,7 +366,8 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
         frame = derive(frame, code, same_rows=False)
     elif isinstance(rows, Column):
         frame = derive(frame, frame.code.method("filter", ctx.expr(rows, frame)), same_rows=False)
-    elif _one_label(rows) and isinstance(cols, Opaque) and isinstance(cols.const, str):
+    elif (_one_label(rows) or _label_read(rows, frame)) and isinstance(cols, Opaque) \
+            and isinstance(cols.const, str):
         return _labelled_value(frame, rows, cols, ctx)  # df.loc["label", "c"], as df.at
     elif (_one_label(rows) or _label_tuple(rows)) \
             and (cols is None or isinstance(cols, Opaque) and cols.const == slice(None)):
@@ -479,6 +480,18 @@ def _labelled_value(frame: Frame, label: Opaque, col: Opaque, ctx: RuleContext) 
     return Scalar(code, pytype=pytype if pytype in ("int", "float", "str", "bool") else None)
 
 
+# print(df.loc[label]) without pandas: the rows holding the label, or pandas' KeyError
+LABEL_ROWS_FUNCTION = "pandas_label_rows"
+LABEL_ROWS_DEFINITION = '''\
+def pandas_label_rows(rows, label):
+    """The rows of df.loc[label] to print (those whose keys hold the label, picked in Polars),
+    shown as Polars shows a frame; KeyError where no row holds it, as pandas raises."""
+    if not rows.height:
+        raise KeyError(label)
+    return rows
+'''
+
+
 def _rows_by_label(frame: Frame, label: Opaque, ctx: RuleContext) -> Value:
     """df.loc["label"] of a table labelled by one key column (set_index, read_csv(index_col=),
     a groupby's keys), or df.loc[("a", "b")] of one labelled by as many: the rows whose keys
@@ -487,7 +500,8 @@ def _rows_by_label(frame: Frame, label: Opaque, ctx: RuleContext) -> Value:
     as on the whole table: the row Series (values typed as pandas types a row of that frame,
     named by the label) when one row holds the label, a frame of those rows in their order
     when several do (porter cannot tell which from the script: a key read from a file may
-    repeat), KeyError when none does."""
+    repeat), KeyError when none does. Only printed or displayed, the rows are shown in Polars
+    (pandas_label_rows), as a printed frame is."""
     parts = label.const if isinstance(label.const, tuple) else (label.const,)
     if not frame.index or len(parts) > len(frame.index) or row_labels_carried(frame) \
             or isinstance(label.const, tuple) and len(frame.index) == 1:
@@ -499,12 +513,75 @@ def _rows_by_label(frame: Frame, label: Opaque, ctx: RuleContext) -> Value:
     picked = derive(frame, frame.code.method("filter", *(
         emit.binop(emit.col(k), "==", emit.lit(p)) for p, k in zip(parts, frame.index))),
         same_rows=False)
+    if ctx.shown:
+        # only printed or displayed: the rows are shown as Polars shows a frame (as print(df)
+        # is), without importing pandas for them (the import costs more than the script's
+        # own work on a short run); KeyError where no row holds the label, as pandas raises
+        return Opaque(emit.call(LABEL_ROWS_FUNCTION, picked.code.method("collect"),
+                                emit.lit(label.const)), sites=label.sites)
     ctx.handover = True
     chain = to_pandas(picked)
     step = f".loc[{emit.lit(label.const).text}]"
+    rows = (picked, label.const)  # a reduction of the row is computed without pandas
     if chain.base is not None and chain.steps:  # laid out one step per line, .loc[...] the last
-        return PandasValue(Code(f"{chain.text}{step}", emit.ATOM, chain.base, (*chain.steps, step)))
-    return PandasValue(chain.attr("loc").index(label.const))
+        return PandasValue(Code(f"{chain.text}{step}", emit.ATOM, chain.base, (*chain.steps, step)),
+                           label_rows=rows)
+    return PandasValue(chain.attr("loc").index(label.const), label_rows=rows)
+
+
+# df.loc[label].sum() of a table of numbers without pandas: the row's floats added as numpy adds
+ROW_SUM_FUNCTION = "pandas_row_sum"
+ROW_SUM_DEFINITION = '''\
+def pandas_row_sum(rows, keys, label, by_pandas):
+    """df.loc[label].sum() without pandas, where one row holds the label and its values are
+    numbers, one float column or more: pandas' row is then float64 (whole numbers become
+    floats, a missing value is NaN), and its sum counts a missing value 0 and adds as numpy
+    adds. KeyError where no row holds the label. Where several do (pandas' .loc gives a
+    frame, whose sum is per column), or the values are of other types (whole numbers only,
+    whose row type pandas decides from missing values anywhere in the columns; text,
+    True/False, dates), by_pandas(rows) computes it with pandas from the rows."""
+    found = rows.collect()
+    if not found.height:
+        raise KeyError(label)
+    values = found.drop(keys)
+    types = values.schema.values()
+    if found.height != 1 or pl.Float64 not in types or not all(
+            t.is_integer() or t in (pl.Float32, pl.Float64) for t in types):
+        return by_pandas(rows)
+    import numpy as np
+
+    numbers = np.array([np.nan if v is None else v for v in values.cast(pl.Float64).row(0)],
+                       dtype=np.float64)
+    numbers[np.isnan(numbers)] = 0.0
+    return numbers.sum()
+'''
+
+
+@rule("frame.loc.row.sum")
+def label_row_sum(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.loc[label].sum() -> the sum of the row holding the label, computed from the rows
+    picked in Polars (pandas_row_sum), without handing them to pandas.
+
+    Handles: a row of numbers, one float column or more (pandas' row is then float64: whole
+    numbers become floats, a missing value or NaN is skipped), added as numpy adds them
+    (pandas' sum); KeyError where no row holds the label. Decided on the rows when the
+    script runs (the columns of a pivot are known only then): a label several rows hold
+    (pandas' .loc gives a frame, whose sum is per column), and rows of whole numbers only
+    (pandas' row type depends on missing values anywhere in a column), of text, True/False or
+    dates are summed by pandas from the rows picked.
+    Caveats: options of sum stay on pandas."""
+    receiver = call.receiver
+    assert isinstance(receiver, PandasValue) and receiver.label_rows is not None
+    picked, label = receiver.label_rows
+    by_pandas = receiver.code.method(
+        "sum", *(a.code for a in call.args), **{k: v.code for k, v in call.kwargs.items()})
+    if call.args or call.kwargs:
+        ctx.handover = True  # pandas' own sum of the row it was handed
+        return PandasValue(by_pandas)
+    handed = to_pandas(replace(picked, code=emit.atom("rows")))
+    lazy = emit.atom(f"lambda rows: {handed.text}.loc[{emit.lit(label).text}].sum()")
+    return Scalar(emit.call(ROW_SUM_FUNCTION, picked.code, emit.lit(list(picked.index)),
+                            emit.lit(label), lazy))
 
 
 def _column_label_slice(frame: Frame, piece: slice) -> Frame:
@@ -758,6 +835,10 @@ def columns(call: PandasCall, ctx: RuleContext) -> Value:
                           for n in names)
         return Scalar(emit.atom(f"[{items}]"), pytype="list", of=frame)
     names = data_columns(frame).method("collect_schema").method("names")
+    if frame.dates_as_text is not None:
+        # a pivot's date columns, named already by the text the statement after the pivot
+        # makes of them (df.columns = df.columns.strftime(...)): only that reads them
+        return Scalar(names, pytype="names.dates", of=frame)
     if frame.int_labels_except is not None:
         # a pivot on an integer key: pandas' labels are the key's values (2024), Polars' their
         # text ("2024"); selections by them find the text again (_by_text)
@@ -766,6 +847,25 @@ def columns(call: PandasCall, ctx: RuleContext) -> Value:
                                 f".isdecimal() else c for c in {names.text}]"),
                       pytype="list", of=frame)
     return Scalar(names, pytype="list[str]", of=frame)
+
+
+@rule("frame.columns.strftime")
+def columns_strftime(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.columns.strftime(format) of a pivot's date columns -> nothing (the pivot's names).
+
+    In `df.columns = df.columns.strftime(format)` right after the pivot: the pivot named the
+    columns by the dates written with that format (Polars' dt.to_string, the directives
+    checked to write what pandas writes), in the order of the dates.
+
+    Caveats: any other use of a pivot's date columns is a TODO (the pivot itself stays pandas
+    where no such statement follows it)."""
+    names = call.receiver
+    assert isinstance(names, Scalar) and isinstance(names.of, Frame)
+    ctx.reject_unknown(call, "date_format", positional=1)
+    fmt = call.const("date_format", 0, None, kinds=(str,))
+    if names.pytype != "names.dates" or fmt != names.of.dates_as_text:
+        raise ctx.todo("strftime of columns other than a pivot's dates named by it")
+    return Scalar(names.code, pytype="names.formatted", of=names.of)
 
 
 @rule("frame.columns.droplevel")
@@ -1715,6 +1815,23 @@ def series_xs(call: PandasCall, ctx: RuleContext) -> Value:
                   if frame.columns is not None else None,
                   dtypes=tuple((c, t) for c, t in frame.dtypes if c != level))
     return replace(column, code=ctx.expr(column, frame), frame=left, sites=())
+
+
+@rule("series.name")
+def series_name(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.index.name -> the name of the key column that labels the rows, a constant.
+
+    Handles: a table labelled by one key column (set_index, read_csv(index_col=), a groupby's
+    key, pivot's index) reads its key's name; a table whose labels have no name (0..n-1, a
+    reindex over a date range, a rename_axis(None)) reads None, as pandas.
+    Caveats: the name of any other Series is a TODO (porter does not follow the names pandas
+    gives the results of arithmetic)."""
+    column = call.receiver
+    assert isinstance(column, Column)
+    if not column.index_values:
+        raise ctx.todo("the name of a Series other than a table's labels: pandas names "
+                       "the results of arithmetic by rules of its own")
+    return Scalar(emit.lit(column.name), pytype="str" if column.name is not None else None)
 
 
 @rule("series.is_unique")

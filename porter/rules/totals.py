@@ -172,19 +172,20 @@ def frame_corr(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.lower("pandas adds each pair with Welford's running sums and Polars in another "
               "order: the last digit of a correlation can differ", 0.9)
 
-    def pair(a: str, b: str) -> Code:
-        value = emit.pl("corr", a, b).method("fill_nan", None)  # NaN in pandas: missing
-        if min_periods > 1:
-            both = emit.binop(emit.col(a).method("is_not_null"), "&",
-                              emit.col(b).method("is_not_null")).method("sum")
-            value = emit.when(emit.binop(both, ">=", min_periods), value)
-        return value.method("alias", b)
-
+    # one row per column `a`: its correlation with each column `b`, written as a loop over
+    # the names (the same select for every row)
+    a, b = emit.atom("a"), emit.atom("b")
+    value = emit.pl("corr", a, b).method("fill_nan", None)  # NaN in pandas: missing
+    if min_periods > 1:
+        both = emit.binop(emit.pl("col", a).method("is_not_null"), "&",
+                          emit.pl("col", b).method("is_not_null")).method("sum")
+        value = emit.when(emit.binop(both, ">=", min_periods), value)
+    listed = emit.lit(list(names))
+    cells = emit.atom(f"*({value.method('alias', b).text} for b in {listed.text})")
     cast = frame.code.method("with_columns", emit.col(names).method(
         "cast", emit.atom("pl.Float64")))  # a text column fails here, as pandas raises
-    rows = [cast.method("select", emit.pl("lit", a).method("alias", "index"),
-                        *(pair(a, b) for b in names)) for a in names]
-    code = emit.pl("concat", rows)
+    row = cast.method("select", emit.pl("lit", a).method("alias", "index"), cells)
+    code = emit.pl("concat", emit.atom(f"[{row.text} for a in {listed.text}]"))
     return Frame(code, columns=("index", *names), index=("index",), index_unnamed=True,
                  labels_intact=False,
                  dtypes=(("index", "str"), *((c, "float") for c in names)))

@@ -385,6 +385,14 @@ def _group_of(grouped: Grouped) -> Frame:
 FLOAT_BRANCH = r"\.(then|otherwise)\((pl\.lit\()?(-?[0-9]+\.[0-9]*|float)"
 
 
+def _rows_elsewhere(value: Frame | Column) -> Frame | Column:
+    """A frame (or a column of one) read inside a group's function, taken as rows of their
+    own: what the function computes of it is not the group's."""
+    if isinstance(value, Column):
+        return replace(value, frame=replace(value.frame, rows=fresh_token()))
+    return replace(value, rows=fresh_token())
+
+
 def group_function(call: PandasCall, grouped: Grouped, name: str, function: Opaque,
                    ctx: RuleContext) -> tuple[Code, str | None]:
     """agg(f) on the group's column `name`: f's body evaluated once with its parameter
@@ -392,14 +400,19 @@ def group_function(call: PandasCall, grouped: Grouped, name: str, function: Opaq
     `s.str.len().mean()`) or reductions combined by Python operators (`s.max() - s.min()`)
     is one value per group: (the aggregation expression, its type)."""
     param, body = _parameter_and_body(call, function, ctx, "write it as an aggregation")
+    others: dict[str, Value] = {}
     for other in _free_names(body) - {param}:
-        # a reduction of a whole frame inside the function (s.sum() / df["kg"].sum()) would be
-        # written as the group's own in an aggregation
-        if isinstance(ctx.evaluate(cst.Name(other), {}), (Frame, Column, Grouped)):
+        value = ctx.evaluate(cst.Name(other), {})
+        if isinstance(value, Grouped):
             raise Unsupported(f"the function reads `{other}`, not only the group's values")
+        if isinstance(value, (Frame, Column)):
+            # a reduction of a whole frame inside the function (s.sum() / df["kg"].sum()) is
+            # one value for every group: its rows made another frame's, so that it is
+            # computed once (collected), never written as the group's own in the aggregation
+            others[other] = _rows_elsewhere(value)
     group = _group_of(grouped)
     values = column_of(group, name)
-    result = _checked(ctx.evaluate(body, {param: values}), ctx)
+    result = _checked(ctx.evaluate(body, {**others, param: values}), ctx)
     if isinstance(result, Scalar) and result.agg is not None and result.agg.frame.rows == group.rows:
         expr, dtype = result.agg.code, result.agg.dtype or result.pytype
     else:
@@ -409,7 +422,7 @@ def group_function(call: PandasCall, grouped: Grouped, name: str, function: Opaq
         if not reductions.bindings or _mentions(rewritten, param):
             raise Unsupported("the function's result is not one value of the group's column "
                               "(a reduction, or reductions combined by operators)")
-        combined = _checked(ctx.evaluate(rewritten, reductions.bindings), ctx)
+        combined = _checked(ctx.evaluate(rewritten, {**others, **reductions.bindings}), ctx)
         if not (isinstance(combined, Column) and combined.frame.rows == grouped.frame.rows):
             raise Unsupported("the function's reductions are combined in a way porter cannot "
                               "write as an expression")
@@ -819,6 +832,57 @@ def group_head(call: PandasCall, ctx: RuleContext) -> Value:
     else:  # all but the last (head) or first (tail) -n rows
         keep = emit.binop(_positions(grouped, head), ">" if head else ">=", -n)
     return _group_rows(call, grouped, keep)
+
+
+@rule("groupby.nlargest", "groupby.nsmallest")
+def group_nlargest(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.groupby(level=k, group_keys=False).nlargest(n) -> the Series' rows sorted by value,
+    the first n of each group kept, the groups in key order.
+
+    Handles: each group's n largest (nsmallest: smallest) values, ties in the Series' own
+    order (keep="first"), missing and NaN values after the numbers where a group has fewer than
+    n numbers, as Series.nlargest puts them; the groups one after another in sorted key order (sort=True), rows of a missing key left out
+    (dropna=True); the rows keep their labels (the Series' keys), as group_keys=False does.
+    Caveats: an empty Series gives pandas one unnamed level of labels (0.95). group_keys=True
+    (pandas puts the group's key in front of the labels, a level of the same name twice),
+    sort=False, keep="last" / "all" and values that are not numbers are
+    TODOs."""
+    grouped = call.receiver
+    assert isinstance(grouped, Grouped)
+    ctx.reject_unknown(call, "n", "keep", positional=1)
+    n = call.const("n", 0, 5, kinds=(int,))
+    if call.const("keep", None, "first", kinds=(str,)) != "first":
+        raise ctx.todo('keep="last" or "all": ties kept otherwise')
+    if grouped.group_keys:
+        raise ctx.todo("group_keys=True: pandas puts each group's key in front of the Series' "
+                       "labels (the key's level twice); group_keys=False keeps the labels")
+    if not grouped.sort:
+        raise ctx.todo("sort=False: the groups in the order they first appear")
+    if not grouped.single or not grouped.selection or grouped.selection[0] in grouped.keys:
+        raise ctx.todo("nlargest of a frame's groups (pandas raises) or of a key column")
+    frame = grouped.frame
+    name = grouped.selection[0]
+    column = column_of(frame, name)
+    if column.dtype not in ("int", "float"):
+        raise ctx.todo(f"values of type {column.dtype or 'unknown'}")
+    # missing and NaN values come after the numbers, in the Series' order, where a group has
+    # fewer than n numbers (pandas appends them to the values it sorted)
+    values = emit.col(name)
+    if column.dtype == "float":
+        values = values.method("fill_nan", None)
+    kwargs: dict[str, object] = {"descending": True} if call.name == "nlargest" else {}
+    # a stable sort by value keeps tied values in the Series' order (keep="first"); the
+    # first n of each group by that order, then the groups in key order, stably
+    code = frame.code
+    if grouped.dropna:
+        code = code.method("filter", _keys_present(grouped))
+    code = code.method("sort", values, **kwargs, nulls_last=True, maintain_order=True) \
+        .method("filter", emit.binop(_positions(grouped, False), "<", n)) \
+        .method("sort", list(grouped.keys), maintain_order=True)
+    ctx.lower("an empty Series: pandas' result has one unnamed level of labels where the "
+              "conversion keeps the keys", 0.9)
+    rows = derive(frame, code, same_rows=False)
+    return column_of(rows, name)
 
 
 @rule("groupby.nth")

@@ -35,7 +35,7 @@ from porter.translate.context import (
 )
 from porter.translate.evaluate import Evaluator, Services, parts_current
 from porter.translate.values import (
-    MISSING, Column, Frame, Grouped, Indexed, Module, Opaque, PandasValue, Parts, Scalar, Value,
+    MISSING, Accessor, Column, Frame, Grouped, Indexed, Module, Opaque, PandasValue, Parts, Scalar, Value,
     fresh_token, is_pandas,
 )
 
@@ -106,9 +106,14 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     services.label_free_loops = label_free_loops(module)
     services.name_lines = {name: [positions[n].start.line for n in nodes]
                            for name, nodes in _name_nodes(module).items()}
-    services.changed_in_place = {name: [position(n)[0] for n in nodes]
-                                 for name, nodes in changes_in_place(module).items()}
+    changes = changes_in_place(module)
+    services.changed_in_place = {name: [position(n)[0] for n in nodes] for name, nodes in changes.items()}
+    # where each change starts, to order it against statements sharing its line (`a = x; a["c"] = y`)
+    services.changed_at = {name: [(p.start.line, p.start.column) for n in nodes
+                                  if (p := positions.get(n)) is not None]
+                           for name, nodes in changes.items()}
     services.position = position
+    services.start = lambda node: (p.start.line, p.start.column) if (p := positions.get(node)) else None
     services.glued = glued
     services.mutated = mutated_names(module)
     services.inside_from_pandas = inside_from_pandas
@@ -130,6 +135,8 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     # a call of the script's own function that changes its argument in place changes it too
     for name, _, call in _changed_by_functions(module, services.functions):
         services.changed_in_place.setdefault(name, []).append(position(call)[0])
+        if (start := services.start(call)) is not None:
+            services.changed_at.setdefault(name, []).append(start)
 
     # Which parameters of the script's own functions take frames is learnt from the calls:
     # run the pass until that stops changing (each round can learn one more link of a chain
@@ -274,6 +281,8 @@ class _Walker:
         self.header_sites: list[SiteDraft] = []  # sites in the header of the compound statement at hand
         self.statement_key = 0  # the simple statement being rewritten
         self.current_small: cst.CSTNode = cst.Pass()
+        self.shared_line = False  # the statement shares its line with others (`a = x; a["c"] = y`)
+        self.small_start: tuple[int, int] | None = None  # where it starts: line, column
         self.loop_depth = 0
         self.sink_run: int | None = None  # the execution a run of consecutive writes shares
         self.has_next = False  # the statement at hand has another after it in its block
@@ -401,7 +410,10 @@ class _Walker:
             name = param.name.value
             if function is not None and name in function.frame_params:
                 columns, dtypes = dict(function.param_schemas).get(name, (None, ()))
-                local[name] = Frame(emit.atom(name), labels_intact=False, columns=columns, dtypes=dtypes)
+                # labelled as every call's frame is (its index columns), where they agree
+                index, unnamed = dict(function.param_indexes).get(name, ((), False))
+                local[name] = Frame(emit.atom(name), labels_intact=False, columns=columns,
+                                    dtypes=dtypes, index=index, index_unnamed=unnamed)
                 self.param_frames[local[name].rows] = name  # type: ignore[union-attr]
             elif function is not None and name in function.column_params:
                 # a Polars expression: the caller's column (the rows are the caller's, unknown)
@@ -1038,8 +1050,9 @@ class _Walker:
         self.statement_key = id(line)
         self.services.statement_lines = self.services.position(line)
         run, self.sink_run = self.sink_run, None
-        smalls = [part for small in line.body for part in _one_target_each(small)]
-        for small in smalls:
+        smalls = [(part, self.services.start(small)) for small in line.body for part in _one_target_each(small)]
+        self.shared_line = len(smalls) > 1
+        for small, self.small_start in smalls:
             text, new_sites = self.small(small, env, indent)
             texts.append(text)
             sites += new_sites
@@ -1068,7 +1081,7 @@ class _Walker:
             dropped = self.drop_parts_columns(env, indent)
             if dropped is not None:
                 last_text = texts[-1] if texts[-1] is not None \
-                    else self.services.code_for(smalls[-1]).strip()
+                    else self.services.code_for(smalls[-1][0]).strip()
                 texts[-1] = f"{last_text}\n{dropped}"
         self.record(tuple(sites))
         if not self.emit_code:  # an analysis pass only learns; the last pass writes
@@ -1079,7 +1092,7 @@ class _Walker:
         if all(t is None for t in texts):
             return [line.with_changes(leading_lines=[*line.leading_lines, *todo_lines])]
         parts = [t if t is not None else self.services.code_for(s).strip()
-                 for t, s in zip(texts, smalls)]
+                 for t, (s, _) in zip(texts, smalls)]
         new_lines = []
         statements = [stmt for part in parts for stmt in cst.parse_module(part + "\n").body]
         if not statements:  # nothing left to write (`df = df`, `df.columns.name = None`)
@@ -1306,8 +1319,15 @@ class _Walker:
         """Whether the script changes one of these names' object in place after this statement
         (or anywhere, inside a loop or a function)."""
         here = self.services.statement_lines[1]
-        return any(line > here or self.loop_depth or self.function is not None
-                   for name in names for line in self.services.changed_in_place.get(name, ()))
+        if self.loop_depth or self.function is not None:
+            return any(name in self.services.changed_in_place for name in names)
+        if any(line > here for name in names for line in self.services.changed_in_place.get(name, ())):
+            return True
+        # a change on this statement's own line, `keyed = df.set_index("k"); keyed["c"] = ...`,
+        # counts when it starts after the statement (`df["c"] = y; result = df` does not)
+        return self.shared_line and any(
+            line == here and (self.small_start is None or (line, column) > self.small_start)
+            for name in names for line, column in self.services.changed_at.get(name, ()))
 
     def hand_over_changed(self, stmt: cst.BaseSmallStatement, env: dict[str, Value]) -> tuple[list[str], list[SiteDraft]]:
         """Frames and Series the statement changes in place in a way no rule rewrites
@@ -1772,6 +1792,11 @@ class _Walker:
         result = evaluator.dispatch(key, call, target)
         if result is frame:
             return "", [*result.sites]  # the change has no Polars form: nothing is written
+        if isinstance(result, Frame) and result.code is frame.code \
+                and frame.dates_as_text is not None and result.dates_as_text is None:
+            # a pivot's date columns, named already as this statement renames them
+            env[owner.value] = result
+            return "", [*result.sites]
         return self.bind_changed(owner.value, frame, result, env, indent)
 
     def note_stale_series(self, name: str, frame: Frame, env: dict[str, Value]) -> None:
@@ -1808,23 +1833,67 @@ class _Walker:
             return None
         names = _names_read(self.services.code_for(expr))
         frames = [n for n in names if isinstance(env.get(n), Frame)]
-        if len(frames) != 1:
-            return None
-        frame = env[frames[0]]
-        assert isinstance(frame, Frame)
-        if not frame.labels_intact or frame.index or frame.columns is None \
-                or "index" in frame.columns \
-                or frame.nullable_ints is None and self.services.nullable_ints_possible:
-            # (which columns are pandas' nullable ints is unknown only where the script can
-            # make them at all)
-            return None
-        labelled = with_row_labels(frame)
-        result = Evaluator({**env, frames[0]: labelled}, self.services).eval(expr)
-        if any(site.status == "todo" for site in result.sites):
-            return None
-        if keep_index and not (isinstance(result, Frame) and result.index == ("index",)):
-            return None
-        return result
+        if not frames:
+            return self._labels_where_the_chain_starts(expr, env, keep_index)
+        # a statement reading several frames (left.merge(right, left_on=k, right_index=True)
+        # labels its rows with the left's): each frame in turn, kept where the result holds
+        # that frame's labels as its index
+        keep_index = keep_index or len(frames) > 1
+        for name in frames:
+            frame = env[name]
+            assert isinstance(frame, Frame)
+            if not frame.labels_intact or frame.index or frame.columns is None \
+                    or "index" in frame.columns \
+                    or frame.nullable_ints is None and self.services.nullable_ints_possible:
+                # (which columns are pandas' nullable ints is unknown only where the script
+                # can make them at all)
+                if len(frames) == 1:
+                    return None
+                continue
+            labelled = with_row_labels(frame)
+            result = Evaluator({**env, name: labelled}, self.services).eval(expr)
+            if any(site.status == "todo" for site in result.sites):
+                continue
+            if keep_index and not (isinstance(result, Frame) and result.index == ("index",)):
+                continue
+            return result
+        return None
+
+    def _labels_where_the_chain_starts(self, expr: cst.BaseExpression, env: dict[str, Value],
+                                       keep_index: bool) -> Value | None:
+        """labels_as_column of a statement that makes its frame and reorders it in one chain
+        (`pd.read_csv(...).sort_values("v")`): the frame the chain starts from (the innermost
+        receiver that is a frame porter tracks with its labels still 0..n-1) is given its row
+        numbers as a column there."""
+        receivers: list[cst.BaseExpression] = []
+        node: cst.BaseExpression = expr
+        while True:
+            if isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute):
+                node = node.func.value
+            elif isinstance(node, (cst.Attribute, cst.Subscript)):
+                node = node.value
+            else:
+                break
+            receivers.append(node)
+        evaluator = Evaluator(env, self.services)
+        for receiver in reversed(receivers):  # the innermost first: where the frame is made
+            if not isinstance(receiver, cst.Call):
+                continue
+            frame = evaluator.eval(receiver)
+            if not isinstance(frame, Frame) or not frame.labels_intact or frame.index \
+                    or frame.columns is None or "index" in frame.columns \
+                    or frame.nullable_ints is None and self.services.nullable_ints_possible:
+                continue
+            stand_in = "_porter_chain_start"
+            rewritten = expr.visit(_Replaced(receiver, cst.Name(stand_in)))
+            assert isinstance(rewritten, cst.BaseExpression)
+            result = Evaluator({**env, stand_in: with_row_labels(frame)}, self.services).eval(rewritten)
+            if stand_in in result.code.text or any(site.status == "todo" for site in result.sites):
+                return None
+            if keep_index and not (isinstance(result, Frame) and result.index == ("index",)):
+                return None
+            return result
+        return None
 
     def made_by_pandas(self, name: str, expr: cst.BaseExpression, env: dict[str, Value],
                        value: Value) -> tuple[str, list[SiteDraft]] | None:
@@ -1854,8 +1923,12 @@ class _Walker:
         frames += [o for o in dict.fromkeys(env[n].frame.code.text for n in read  # type: ignore[union-attr]
                                              if isinstance(env[n], Column) and env[n].binding is not None)
                    if o not in frames and isinstance(env.get(o), Frame)]
-        if not frames or any(not isinstance(env[n], (Frame, PandasValue, Module, Opaque, Scalar))
-                             and not _expression_of(env[n], frames) for n in read):
+        if not frames and any(not isinstance(env[n], (Module, Opaque, Scalar)) for n in read):
+            return None
+        # (no frame read at all: the statement makes its frame and reorders it in one chain,
+        # pd.read_csv(...).sort_values("v"), which pandas runs as written)
+        if frames and any(not isinstance(env[n], (Frame, PandasValue, Module, Opaque, Scalar))
+                          and not _expression_of(env[n], frames) for n in read):
             return None
         if any(env[n].index for n in frames):  # type: ignore[union-attr]
             return None
@@ -2307,6 +2380,24 @@ class _Walker:
             env[name] = Opaque(emit.atom(name), const=const, pytype=pytype)
         elif isinstance(value, Module):
             env[name] = Module(emit.atom(name), qualname=value.qualname)
+        elif isinstance(value, Accessor) and value.kind == "dt" and value.index_of is not None \
+                and len(value.index_of.index) == 1:
+            # `idx = df.index` of a table labelled by one date key: the name holds a frame of
+            # the key alone (its labels, in the table's order), whose DatetimeIndex methods
+            # are ported as on df.index itself; pandas is not imported to hold the labels
+            key = value.index_of.index[0]
+            code = value.index_of.code.method("select", key)
+            if self.emit_code and (self.computed_once() or self.read_changed_later()) \
+                    and not _is_collected(code):
+                code = code.method("collect").method("lazy")
+            self.note_parents(code, env)
+            frame = Frame(emit.atom(name), columns=(key,), rows=fresh_token(), index=(key,),
+                          labels_intact=value.index_of.labels_intact,
+                          index_unnamed=value.index_of.index_unnamed,
+                          dtypes=((key, "datetime"),), binding=self.statement_key)
+            env[name] = replace(value, code=Code(f"{name}.index"), sites=(), index_of=frame,
+                                column=replace(value.column, code=emit.col(key), frame=frame,
+                                               binding=self.statement_key))
         else:
             code = Evaluator(env, self.services).handed_to_unknown(value, cst.Name(name)).code
             env[name] = PandasValue(emit.atom(name))
@@ -3031,6 +3122,9 @@ def _plan_of(value: Value | None) -> Value | None:
         return value.frame
     if isinstance(value, Column) and value.frame.binding is not None:
         return value.frame  # a Series kept in a name: the frame of its keys and values
+    if isinstance(value, Accessor) and value.index_of is not None \
+            and value.index_of.binding is not None:
+        return value.index_of  # a date index kept in a name: the frame of its key
     return value
 
 
@@ -3112,6 +3206,17 @@ def _try_assignments(stmt: cst.Try) -> dict[str, list[cst.BaseExpression]]:
 
     stmt.visit(Assigns())
     return found
+
+
+class _Replaced(cst.CSTTransformer):
+    """The tree with one node (found by identity) replaced by another."""
+
+    def __init__(self, target: cst.CSTNode, by: cst.BaseExpression) -> None:
+        super().__init__()
+        self.target, self.by = target, by
+
+    def on_leave(self, original: cst.CSTNode, updated: cst.CSTNode) -> cst.CSTNode:  # type: ignore[override]
+        return self.by if original is self.target else updated
 
 
 def _names_read(text: str) -> list[str]:

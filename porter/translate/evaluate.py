@@ -17,7 +17,7 @@ from typing import Any
 import libcst as cst
 
 from porter.analysis import pandas_names
-from porter.analysis.consumers import library, plots
+from porter.analysis.consumers import MODEL_ARRAY_METHODS, library, plots
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.mapping import MappingTable
@@ -52,6 +52,10 @@ class LocalFunction:
     returns: Value | None  # a template of the return value (Frame), when known
     # what every call passes for a frame parameter, when the calls agree: (columns, dtypes)
     param_schemas: tuple[tuple[str, tuple[tuple[str, ...] | None, tuple[tuple[str, str], ...]]], ...] = ()
+    # the index every call's frame has for a frame parameter, when they agree and it is one
+    # (set_index, a groupby's keys, index_col=): (param, (index columns, index unnamed)); the
+    # body sees a frame labelled by them, so what it returns keeps them as its labels
+    param_indexes: tuple[tuple[str, tuple[tuple[str, ...], bool]], ...] = ()
     # literal values every call passes (a file name), so rules can look inputs up
     param_consts: tuple[tuple[str, Any], ...] = ()
     # texts the calls pass for a parameter when they differ (two input files of one layout)
@@ -116,6 +120,7 @@ class Services:
     # names whose object the script changes in place (`df["c"] = ...`, inplace=True), with the
     # lines where it does
     changed_in_place: dict[str, list[int]] = field(default_factory=dict)
+    changed_at: dict[str, list[tuple[int, int]]] = field(default_factory=dict)  # (line, column)
     # how many times each name is written in the module (a loop's row read after the loop)
     name_uses: dict[str, int] = field(default_factory=dict)
     name_lines: dict[str, list[int]] = field(default_factory=dict)  # where each name is written
@@ -156,6 +161,7 @@ class Services:
     statement_lines: tuple[int, int] = (0, 0)  # lines of the statement being rewritten
     # whether a node is glued to the word before it (`if(`, `not(`): its rewrite needs parentheses
     glued: Callable[[cst.CSTNode], bool] = lambda node: False
+    start: Callable[[cst.CSTNode], tuple[int, int] | None] = lambda node: None  # line, column
     mutated: frozenset[str] = frozenset()  # names the script changes in place (never constants)
     # the script's own functions a converted groupby().apply read as expressions, with the
     # ids of those apply calls (functions.ported_where_applied)
@@ -423,6 +429,14 @@ class Evaluator:
             # df.set_index(k).<anything but resample / groupby / reset_index>: the table
             # labelled by k, its key column held as the index
             receiver = labelled_frame(receiver.frame, receiver.key)
+        if isinstance(receiver, PandasValue) and receiver.label_rows is not None \
+                and name in _LABEL_ROW_METHODS:
+            # df.loc[label].sum(): the row's reduction (rules/selection.py), computed from the
+            # rows .loc picked, which are then not handed to pandas
+            receiver = replace(receiver, sites=tuple(
+                replace(s, status="converted") if s.key == "frame.loc" and s.status == "handover"
+                else s for s in receiver.sites))
+            return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
         if isinstance(receiver, Frame):
             if name in ("loc", "iloc", "at") or name == "ix" and name not in (receiver.columns or ()):
                 # (.ix: label-or-position indexing pandas 1.0 removed, rules/legacy.py)
@@ -480,6 +494,13 @@ class Evaluator:
         if isinstance(receiver, Accessor):
             names = pandas_names.STR if receiver.kind == "str" else \
                 _WINDOW_METHODS if receiver.kind in handover.WINDOW_KINDS else pandas_names.DT
+            if receiver.kind == "dt" and name == "name" and receiver.index_of is not None:
+                # df.index.name of a table labelled by one date key: the series.name rule
+                # reads the key column's name
+                labels = replace(receiver.column, index_values=True,
+                                 name=None if receiver.index_of.index_unnamed
+                                 else receiver.index_of.index[0])
+                return self.dispatch("series.name", PandasCall(labels, name, node=node), node)
             if receiver.kind == "dt" and name in _DT_PROPERTIES:
                 return self.dispatch(f"series.dt.{name}", PandasCall(receiver, name, node=node), node)
             if receiver.kind == "dt" and name in _PERIOD_METHODS:  # of s.dt.to_period(...)
@@ -489,7 +510,7 @@ class Evaluator:
         if isinstance(receiver, (Column, Frame, Grouped, Accessor, Indexer, Resampled, Indexed)):
             return self.todo(f"{_prefix(receiver)}.{name}", PandasCall(receiver, name, node=node),
                              node, "porter has no rule for this attribute")
-        if isinstance(receiver, Scalar) and (receiver.pytype == "list[str]" or
+        if isinstance(receiver, Scalar) and (receiver.pytype in ("list[str]", "names.dates") or
                                              receiver.pytype == "list" and receiver.of is not None):
             return self.column_names_attribute(receiver, name, node)
         if isinstance(receiver, Scalar) and receiver.pytype == "datetime" and name in _TIMESTAMP_ONLY:
@@ -580,7 +601,11 @@ class Evaluator:
                         ok = False
                         return updated
                     return cst.parse_expression(handover.to_pandas(named).wrapped(emit.ATOM))
-                if isinstance(named, (Grouped, Accessor, Indexer, Parts)):
+                if isinstance(named, Indexed) and not named.grouped \
+                        and named.frame.labels_intact and not named.frame.index:
+                    # set_index(k) of a frame in a name: pandas' frame labelled by k
+                    return cst.parse_expression(handover.to_pandas(named).wrapped(emit.ATOM))
+                if isinstance(named, (Grouped, Accessor, Indexer, Parts, Indexed)):
                     ok = False
                 return updated
 
@@ -641,12 +666,22 @@ class Evaluator:
             return self.generic(node)
         if attr == "str":  # string methods on the names (rules/selection.py, columns_str)
             return replace(names, pytype="names.str")
+        if attr == "strftime" and names.pytype == "names.dates":
+            # a pivot's date columns written as text (rules/selection.py, columns_strftime)
+            return BoundMethod(names.code, receiver=names, name=attr)
         if attr == "droplevel" and isinstance(names.of, Frame) and names.of.column_pairs:
             # the (column, function) pairs of MultiIndex columns (rules/selection.py)
             # the names of a level are exact: the list of pairs' lowered confidence goes
             kept = tuple(s for s in names.sites if s.key != "frame.columns")
             return BoundMethod(names.code, receiver=replace(names, pytype="names.pairs",
                                                             sites=kept), name=attr)
+        if attr == "name" and isinstance(names.of, Frame) and not names.of.value_levels \
+                and not names.of.column_pairs:
+            # df.columns.name: the key a pivot or unstack laid out as columns (what a hand-over
+            # gives pandas' columns with rename_axis), None for any other frame
+            name = names.of.columns_name
+            return Scalar(emit.lit(name), pytype="str" if name is not None else None,
+                          sites=names.sites)
         line, end_line = self.services.position(node)
         site = SiteDraft("frame.columns.index", "todo", "todo", 0.0,
                          f"pandas' Index.{attr} on the column names: porter's names are a list",
@@ -683,7 +718,7 @@ class Evaluator:
         if lookup is not None:
             return lookup
         if isinstance(func, BoundMethod) and isinstance(func.receiver, Scalar) \
-                and func.receiver.pytype not in ("names.str", "names.pairs"):
+                and func.receiver.pytype not in ("names.str", "names.pairs", "names.dates"):
             return func.receiver  # tolist() of the column names: already a list
         if not isinstance(func, (BoundMethod, Module)):
             return self.generic(node)
@@ -757,6 +792,13 @@ class Evaluator:
                 and isinstance(args[0][0], Opaque) and args[0][0].is_const \
                 and isinstance(args[0][0].const, (str, list, tuple)):
             return self.opaque(node, _CONST_BUILTINS[name](args[0][0].const))  # list("AB")
+        if args is not None and name in ("list", "tuple") and len(args[0]) == 1 and not args[1] \
+                and isinstance(args[0][0], Scalar) and args[0][0].pytype == "list[str]" \
+                and args[0][0].of is not None:
+            # list(df.columns): the names, a plain list porter knows holds text (g[...] of it
+            # selects those columns)
+            names = args[0][0]
+            return Scalar(emit.call(name, names.code), pytype="list[str]", sites=names.sites)
         if args is not None and name == "float" and len(args[0]) == 1 and not args[1] \
                 and isinstance(args[0][0], Opaque) and isinstance(args[0][0].const, str) \
                 and args[0][0].const.strip().lower().lstrip("+-") in ("nan", "inf", "infinity"):
@@ -1021,6 +1063,9 @@ class Evaluator:
             code = emit.binop(labels, op, other.code) if names is left \
                 else emit.binop(other.code, op, labels)
             return PandasValue(code, sites=names.sites + other.sites + (site,))
+        pivot = _pivot_compared(left, right, op)
+        if pivot is not None:
+            return pivot
         if not (_is_series_like(left) or _is_series_like(right)) or op in ("in", "not in", "is", "is not"):
             return self.generic(node)
         return self.dispatch("series.compare", PandasCall(left, op, (right,), node=node), node)
@@ -1274,10 +1319,17 @@ class Evaluator:
             return Opaque(Code(self.standalone(node), precedence(node)), node=node,
                           sites=tuple(rewriter.sites))
         text = self.source(new_node)  # type: ignore[arg-type]
-        if rewriter.pandas_inside:
+        if rewriter.pandas_inside and not _model_array(node):
             # built on a value handed over to pandas: a pandas object, never a plain scalar
             return PandasValue(Code(text, precedence(node)), sites=tuple(rewriter.sites))
         return Opaque(Code(text, precedence(node)), sites=tuple(rewriter.sites))
+
+
+def _model_array(node: cst.BaseExpression) -> bool:
+    """A model's predictions or a transform's rows (`scaler.fit_transform(df[cols])`,
+    `km.fit_predict(X)`): a numpy array whatever pandas values it was given."""
+    return isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute) \
+        and node.func.attr.value in MODEL_ARRAY_METHODS
 
 
 def _one_select(left: Value, right: Value, op: str) -> Scalar | None:
@@ -1324,6 +1376,27 @@ def parts_current(parts: Parts, env: Mapping[str, Value]) -> bool:
     return isinstance(frame, Frame) and frame.rows == source.frame.rows \
         and frame.code.text == source.frame.code.text \
         and all(frame.version(c) == v for c, v in source.versions)
+
+
+def _pivot_compared(left: Value, right: Value, op: str) -> Frame | None:
+    """`grid > 0` of a pivoted table whose columns porter does not know (an unstack, a
+    crosstab; every cell a number) and a number written in the script: a table of the same
+    labels whose cells are True/False. pandas compares a missing cell (NaN) as False, or True
+    for !=; Polars would give null (and NaN compares above every number there)."""
+    from porter.translate.context import number_cells
+    if not (isinstance(left, Frame) and isinstance(right, Opaque) and right.is_const
+            and isinstance(right.const, (int, float)) and not isinstance(right.const, bool)
+            and op in ("==", "!=", "<", "<=", ">", ">=")):
+        return None
+    pivoted, kind = number_cells(left)
+    if not pivoted or kind not in ("int", "float", None) or not left.index:
+        return None
+    cells = emit.pl("exclude", *left.index)
+    if kind != "int":
+        cells = cells.method("fill_nan", None)
+    test = emit.binop(cells, op, right.code).method("fill_null", op == "!=")
+    code = left.code.method("with_columns", test)
+    return replace(left, code=code, sites=left.sites + right.sites, number_cells=(code.text, "bool"))
 
 
 @dataclass(frozen=True)
@@ -1584,6 +1657,10 @@ _SERIES_GROUPBY_ONLY = frozenset({"dtype", "is_monotonic_decreasing", "is_monoto
                                   "nlargest", "nsmallest", "unique"})
 
 
+# methods of df.loc[label] (the row of a label) with a rule: others are pandas' on the row
+_LABEL_ROW_METHODS = frozenset({"sum"})
+
+
 def _prefix(value: Value) -> str:
     if getattr(value, "key_prefix", None):  # a window within groups (rules/windows.py)
         return value.key_prefix  # type: ignore[attr-defined]
@@ -1591,6 +1668,8 @@ def _prefix(value: Value) -> str:
         return value.const.key_prefix  # the periods of pd.period_range (rules/construct.py)
     if isinstance(value, Frame):
         return "frame"
+    if isinstance(value, PandasValue) and value.label_rows is not None:
+        return "frame.loc.row"  # df.loc[label] (rules/selection.py)
     if isinstance(value, Column):
         return "element" if value.element else "series"
     if isinstance(value, Grouped):
@@ -1601,7 +1680,7 @@ def _prefix(value: Value) -> str:
         return f"{'series' if value.column is not None else 'frame'}.{value.kind}"
     if isinstance(value, Scalar) and value.pytype == "names.str":
         return "frame.columns.str"
-    if isinstance(value, Scalar) and value.pytype == "names.pairs":
+    if isinstance(value, Scalar) and value.pytype in ("names.pairs", "names.dates"):
         return "frame.columns"
     return "value"
 

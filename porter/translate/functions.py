@@ -171,6 +171,7 @@ def learn_functions(services: Services, returns: dict[str, list[Value]],
         calls = services.call_sites.get(name, [])
         frame_params = set()
         schemas = []
+        indexes: list[tuple[str, tuple[tuple[str, ...], bool]]] = []
         consts: list[tuple[str, Any]] = []
         choices: list[tuple[str, tuple[str, ...]]] = []
         for i, param in enumerate(function.params):
@@ -183,6 +184,9 @@ def learn_functions(services: Services, returns: dict[str, list[Value]],
                 continue  # a statement kept on pandas calls it: it is given pandas frames
             if kinds and all(isinstance(k, Frame) for k in kinds):
                 frame_params.add(param)
+                labels = {(k.index, k.index_unnamed) for k in kinds}  # type: ignore[union-attr]
+                if len(labels) == 1 and next(iter(labels))[0]:
+                    indexes.append((param, labels.pop()))
                 shapes = {(k.columns, tuple(sorted(k.dtypes))) for k in kinds}  # type: ignore[union-attr]
                 if len(shapes) == 1:
                     schemas.append((param, shapes.pop()))
@@ -263,7 +267,8 @@ def learn_functions(services: Services, returns: dict[str, list[Value]],
                 by_choice.append((texts, own))
         updated[name] = replace(function, frame_params=frozenset(frame_params), returns=template,
                                 returns_file_rows=file_rows,
-                                param_schemas=tuple(schemas), param_consts=tuple(consts),
+                                param_schemas=tuple(schemas), param_indexes=tuple(indexes),
+                                param_consts=tuple(consts),
                                 param_choices=tuple(choices), returns_column_of=returns_column_of,
                                 returns_by_choice=tuple(by_choice),
                                 text_column_dtypes=tuple(text_dtypes), **column_changes)

@@ -19,6 +19,7 @@ from porter.rules.strings import (
     WHITESPACE_DEFINITION,
 )
 from porter.rules.selection import (
+    LABEL_ROWS_DEFINITION, LABEL_ROWS_FUNCTION, ROW_SUM_DEFINITION, ROW_SUM_FUNCTION,
     DTYPE_PROBE_CONSTANT, DTYPE_PROBE_DEFINITION, DTYPES_TEXT_DEFINITION, DTYPES_TEXT_FUNCTION,
 )
 from porter.rules.groupby import (
@@ -32,6 +33,7 @@ from porter.rules.groupby import (
     TEXT_VALUES_DEFINITION, TEXT_VALUES_FUNCTION,
 )
 from porter.rules.totals import REDUCE_DEFINITION, REDUCE_FUNCTION
+from porter.rules.assign import ALIGNED_DEFINITION, ALIGNED_FUNCTION
 from porter.rules.io_options import (
     CATEGORY_COUNTS_DEFINITION, CATEGORY_COUNTS_FUNCTION,
     CSV_DATETIMES_CONSTANT, CSV_DATETIMES_DEFINITION, CSV_DURATIONS_CONSTANT, CSV_LISTS_CONSTANT,
@@ -40,7 +42,9 @@ from porter.rules.io_options import (
     CSV_DURATIONS_DEFINITION, CSV_FLOATS_CONSTANT, CSV_FLOATS_DEFINITION, CSV_INTS_CONSTANT,
     CSV_INTS_DEFINITION,
     DIVIDE_DEFINITION, DIVIDE_FUNCTION, FLOAT_DIVMOD_DEFINITION, FLOAT_DIVMOD_FUNCTION,
-    COUNT_MARGINS_DEFINITION, COUNT_MARGINS_FUNCTION, MARGINS_DEFINITION, MARGINS_FUNCTION, NA_CONSTANT, PANDAS_NA_TOKENS, QUANTILE_DEFINITION, QUANTILE_FUNCTION, ROW_DEFINITION,
+    COUNT_MARGINS_DEFINITION, COUNT_MARGINS_FUNCTION, DATES_AS_TEXT_DEFINITION,
+    DATES_AS_TEXT_FUNCTION, MARGINS_DEFINITION, MARGINS_FUNCTION, NA_CONSTANT, PANDAS_NA_TOKENS,
+    QUANTILE_DEFINITION, QUANTILE_FUNCTION, ROW_DEFINITION,
     ROW_FUNCTION, SORT_DEFINITION, SORT_FUNCTION,
     UNSTACKED_DEFINITION, UNSTACKED_FUNCTION,
 )
@@ -143,6 +147,7 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (UNSTACKED_FUNCTION, UNSTACKED_DEFINITION),
                                  (MARGINS_FUNCTION, MARGINS_DEFINITION),
                                  (COUNT_MARGINS_FUNCTION, COUNT_MARGINS_DEFINITION),
+                                 (DATES_AS_TEXT_FUNCTION, DATES_AS_TEXT_DEFINITION),
                                  (CATEGORY_COUNTS_FUNCTION, CATEGORY_COUNTS_DEFINITION),
                                  (ROW_FUNCTION, ROW_DEFINITION),
                                  (SORT_FUNCTION, SORT_DEFINITION),
@@ -161,9 +166,12 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (TOTAL_FUNCTION, TOTAL_DEFINITION),
                                  (TOTAL_EXPR_FUNCTION, TOTAL_EXPR_DEFINITION),
                                  (REDUCE_FUNCTION, REDUCE_DEFINITION),
+                                 (ALIGNED_FUNCTION, ALIGNED_DEFINITION),
                                  (TEXT_VALUES_FUNCTION, TEXT_VALUES_DEFINITION),
                                  (TEXT_ARRAY_FUNCTION, TEXT_ARRAY_DEFINITION),
                                  (DTYPES_TEXT_FUNCTION, DTYPES_TEXT_DEFINITION),
+                                 (LABEL_ROWS_FUNCTION, LABEL_ROWS_DEFINITION),
+                                 (ROW_SUM_FUNCTION, ROW_SUM_DEFINITION),
                                  (DISTINCT_FUNCTION, DISTINCT_DEFINITION),
                                  (VALUES_FUNCTION, VALUES_DEFINITION)):
         if function not in used or _defines(module, function):

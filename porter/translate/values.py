@@ -108,6 +108,10 @@ class Frame(Value):
     # writes other code, so the mark no longer holds; context.number_cells) and the cells'
     # type ("int", "float", or None when it depends on the data)
     number_cells: tuple[str, str | None] | None = field(default=None, kw_only=True)
+    # a pivot on a date key whose new columns are named here by the dates written with this
+    # strftime format, as the statement after it names them (df.columns =
+    # df.columns.strftime(format)); pandas labels them with the dates until then
+    dates_as_text: str | None = field(default=None, kw_only=True)
 
     def dtype(self, column: str) -> str | None:
         return dict(self.dtypes).get(column)
@@ -212,6 +216,9 @@ class PandasValue(Value):
     # a name holding a frame that a statement kept on pandas changed: the frame as porter knew
     # it afterwards, so that the next statement porter can rewrite takes it back to Polars
     frame: "Frame | None" = field(default=None, kw_only=True)
+    # df.loc[label] of a table labelled by key columns: (the rows picked in Polars, the
+    # label), so that a reduction of the row can be computed without pandas
+    label_rows: "tuple[Frame, Any] | None" = field(default=None, kw_only=True)
 
 
 @dataclass(frozen=True)

@@ -15,11 +15,10 @@ cheeses = cheeses.with_columns(age_weeks=pl.col("age_days") // 7)
 # TODO(porter): frame.pivot_table: sum without fill_value of a column not known to be numbers:
 #   pandas makes every cell float when one is missing; group_by the keys, then DataFrame.pivot(on,
 #   index, values) with the columns sorted
-pivot = cheeses.collect().to_pandas().pivot_table(
-    index="cellar",
-    columns="kind",
-    values="weight",
-    aggfunc="sum",
+pivot = (
+    cheeses.collect()
+    .to_pandas()
+    .pivot_table(index="cellar", columns="kind", values="weight", aggfunc="sum")
 )
 pivot.to_csv("cellar_pivot.csv")
 # TODO(porter): frame.iterrows: only a loop whose body appends one value per row to lists is ported;

@@ -14,29 +14,31 @@ PANDAS_NA_VALUES = [
 ]
 
 
-def pandas_reduce(values, how="sum"):
-    """The sum, mean or std (how="sum" / "mean" / "std") of a float column as pandas
-    computes them: numpy's pairwise sum of the values, a missing one counted 0 in its place;
-    the mean over the count of values present; the std from the squared distances to that
-    mean (0 where a value is missing), added the same way, over count - 1, and its square
-    root. NaN where there are too few values. Polars adds in another order, and the last
-    digit can differ (55.080000000000005 for 55.08000000000001)."""
+def pandas_reduce(values, how="sum", ddof=1):
+    """The sum, mean, std or var (how="sum" / "mean" / "std" / "var") of a column of numbers
+    as pandas computes them: numpy's pairwise sum of the values as floats, a missing one
+    counted 0 in its place; the mean over the count of values present; the var from the
+    squared distances to that mean (0 where a value is missing), added the same way, over
+    count - ddof, and the std its square root. NaN where there are too few values. Polars
+    adds in another order, and the last digit can differ (55.080000000000005 for
+    55.08000000000001, a std of 3.265986323710904 for 3.2659863237109046)."""
     def reduce(column):
         import numpy as np
 
         present = column.is_not_null().to_numpy()
-        numbers = column.fill_null(0.0).to_numpy()
+        numbers = column.cast(pl.Float64).fill_null(0.0).to_numpy()
         total = numbers.sum()
         if how == "sum":
             return total
         count = int(present.sum())
         if how == "mean":
             return total / count if count else float("nan")
-        if count < 2:
+        if count <= ddof:
             return float("nan")
         squares = (total / count - numbers) ** 2
         squares[~present] = 0.0
-        return float(np.sqrt(squares.sum() / (count - 1)))
+        spread = squares.sum() / (count - ddof)
+        return float(np.sqrt(spread) if how == "std" else spread)
 
     return values.map_batches(reduce, returns_scalar=True, return_dtype=pl.Float64)
 
@@ -424,134 +426,30 @@ plt.savefig("data/honey_by_apiary.png")
 plt.close()
 
 num_cols = ["frames", "brood_pct", "mites_per_100", "honey_kg", "queen_age", "height_m"]
-corr = pl.concat([
-    df.select(num_cols)
-    .with_columns(
-        pl.col([
-            "frames",
-            "brood_pct",
-            "mites_per_100",
-            "honey_kg",
-            "queen_age",
-            "height_m",
-        ])
-        .cast(pl.Float64),
-    )
-    .select(
-        pl.lit("frames").alias("index"),
-        pl.corr("frames", "frames").fill_nan(None).alias("frames"),
-        pl.corr("frames", "brood_pct").fill_nan(None).alias("brood_pct"),
-        pl.corr("frames", "mites_per_100").fill_nan(None).alias("mites_per_100"),
-        pl.corr("frames", "honey_kg").fill_nan(None).alias("honey_kg"),
-        pl.corr("frames", "queen_age").fill_nan(None).alias("queen_age"),
-        pl.corr("frames", "height_m").fill_nan(None).alias("height_m"),
-    ),
-    df.select(num_cols)
-    .with_columns(
-        pl.col([
-            "frames",
-            "brood_pct",
-            "mites_per_100",
-            "honey_kg",
-            "queen_age",
-            "height_m",
-        ])
-        .cast(pl.Float64),
-    )
-    .select(
-        pl.lit("brood_pct").alias("index"),
-        pl.corr("brood_pct", "frames").fill_nan(None).alias("frames"),
-        pl.corr("brood_pct", "brood_pct").fill_nan(None).alias("brood_pct"),
-        pl.corr("brood_pct", "mites_per_100").fill_nan(None).alias("mites_per_100"),
-        pl.corr("brood_pct", "honey_kg").fill_nan(None).alias("honey_kg"),
-        pl.corr("brood_pct", "queen_age").fill_nan(None).alias("queen_age"),
-        pl.corr("brood_pct", "height_m").fill_nan(None).alias("height_m"),
-    ),
-    df.select(num_cols)
-    .with_columns(
-        pl.col([
-            "frames",
-            "brood_pct",
-            "mites_per_100",
-            "honey_kg",
-            "queen_age",
-            "height_m",
-        ])
-        .cast(pl.Float64),
-    )
-    .select(
-        pl.lit("mites_per_100").alias("index"),
-        pl.corr("mites_per_100", "frames").fill_nan(None).alias("frames"),
-        pl.corr("mites_per_100", "brood_pct").fill_nan(None).alias("brood_pct"),
-        pl.corr("mites_per_100", "mites_per_100").fill_nan(None).alias("mites_per_100"),
-        pl.corr("mites_per_100", "honey_kg").fill_nan(None).alias("honey_kg"),
-        pl.corr("mites_per_100", "queen_age").fill_nan(None).alias("queen_age"),
-        pl.corr("mites_per_100", "height_m").fill_nan(None).alias("height_m"),
-    ),
-    df.select(num_cols)
-    .with_columns(
-        pl.col([
-            "frames",
-            "brood_pct",
-            "mites_per_100",
-            "honey_kg",
-            "queen_age",
-            "height_m",
-        ])
-        .cast(pl.Float64),
-    )
-    .select(
-        pl.lit("honey_kg").alias("index"),
-        pl.corr("honey_kg", "frames").fill_nan(None).alias("frames"),
-        pl.corr("honey_kg", "brood_pct").fill_nan(None).alias("brood_pct"),
-        pl.corr("honey_kg", "mites_per_100").fill_nan(None).alias("mites_per_100"),
-        pl.corr("honey_kg", "honey_kg").fill_nan(None).alias("honey_kg"),
-        pl.corr("honey_kg", "queen_age").fill_nan(None).alias("queen_age"),
-        pl.corr("honey_kg", "height_m").fill_nan(None).alias("height_m"),
-    ),
-    df.select(num_cols)
-    .with_columns(
-        pl.col([
-            "frames",
-            "brood_pct",
-            "mites_per_100",
-            "honey_kg",
-            "queen_age",
-            "height_m",
-        ])
-        .cast(pl.Float64),
-    )
-    .select(
-        pl.lit("queen_age").alias("index"),
-        pl.corr("queen_age", "frames").fill_nan(None).alias("frames"),
-        pl.corr("queen_age", "brood_pct").fill_nan(None).alias("brood_pct"),
-        pl.corr("queen_age", "mites_per_100").fill_nan(None).alias("mites_per_100"),
-        pl.corr("queen_age", "honey_kg").fill_nan(None).alias("honey_kg"),
-        pl.corr("queen_age", "queen_age").fill_nan(None).alias("queen_age"),
-        pl.corr("queen_age", "height_m").fill_nan(None).alias("height_m"),
-    ),
-    df.select(num_cols)
-    .with_columns(
-        pl.col([
-            "frames",
-            "brood_pct",
-            "mites_per_100",
-            "honey_kg",
-            "queen_age",
-            "height_m",
-        ])
-        .cast(pl.Float64),
-    )
-    .select(
-        pl.lit("height_m").alias("index"),
-        pl.corr("height_m", "frames").fill_nan(None).alias("frames"),
-        pl.corr("height_m", "brood_pct").fill_nan(None).alias("brood_pct"),
-        pl.corr("height_m", "mites_per_100").fill_nan(None).alias("mites_per_100"),
-        pl.corr("height_m", "honey_kg").fill_nan(None).alias("honey_kg"),
-        pl.corr("height_m", "queen_age").fill_nan(None).alias("queen_age"),
-        pl.corr("height_m", "height_m").fill_nan(None).alias("height_m"),
-    ),
-])
+corr = pl.concat(
+    [
+        df.select(num_cols)
+        .with_columns(
+            pl.col([
+                "frames",
+                "brood_pct",
+                "mites_per_100",
+                "honey_kg",
+                "queen_age",
+                "height_m",
+            ])
+            .cast(pl.Float64),
+        )
+        .select(
+            pl.lit(a).alias("index"),
+            *(
+                pl.corr(a, b).fill_nan(None).alias(b)
+                for b in ["frames", "brood_pct", "mites_per_100", "honey_kg", "queen_age", "height_m"]
+            ),
+        )
+        for a in ["frames", "brood_pct", "mites_per_100", "honey_kg", "queen_age", "height_m"]
+    ],
+)
 print(corr.with_columns(pl.selectors.float().round(2)).collect())
 
 # --- model

@@ -361,7 +361,10 @@ print(
 never_brought = balance.filter(pl.col("_merge") == "left_only")
 print(
     "baked without bringing flour:",
-    [float("nan") if v is None else v for v in never_brought.select(pl.col("baker")).collect().to_series().to_numpy().tolist()],
+    [
+        float("nan") if v is None else v
+        for v in never_brought.select(pl.col("baker")).collect().to_series().to_numpy().tolist()
+    ],
 )
 balance = balance.with_columns(name=pl.col("baker").fill_null(pl.col("member")))
 balance = balance.with_columns(
@@ -395,7 +398,13 @@ balance = (
 )
 # TODO(porter): series.idxmax: the extreme of a column whose type porter does not know
 # TODO(porter): frame.loc: rows chosen by index label: the index is not data in Polars
-worst = balance.collect().to_pandas().set_index("index").rename_axis(None).loc[balance.select(pl.col("index"), pl.col("owed_kg")).collect().to_pandas().set_index("index")["owed_kg"].idxmax(), "name"]
+worst = (
+    balance.collect()
+    .to_pandas()
+    .set_index("index")
+    .rename_axis(None)
+    .loc[balance.select(pl.col("index"), pl.col("owed_kg")).collect().to_pandas().set_index("index")["owed_kg"].rename_axis(None).idxmax(), "name"]
+)
 print("owes the most flour:", worst)
 
 # %% every oven on every day, booked or not

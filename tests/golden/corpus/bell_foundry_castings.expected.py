@@ -486,13 +486,7 @@ log = castings.select(
 )
 
 # In[6]: what the metal cost, month by month
-prices = (
-    prices
-    .with_row_index("__row")
-    .unique("alloy", keep="last")
-    .sort("__row")
-    .drop("__row")
-)
+prices = prices.filter(pl.col("alloy").is_last_distinct())
 costed = (
     castings
     .rename(

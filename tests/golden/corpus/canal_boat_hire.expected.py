@@ -404,13 +404,7 @@ month = (
 print(month.head(10).collect())
 
 # In[6]: service due: hours since the last service interval
-boats = (
-    boats
-    .with_row_index("__row")
-    .unique("boat", keep="last")
-    .sort("__row")
-    .drop("__row")
-)
+boats = boats.filter(pl.col("boat").is_last_distinct())
 log = (
     hires
     .rename(

@@ -374,8 +374,11 @@ hrs = (
 print(hrs.head(8).collect())
 # TODO(porter): series.unstack: a key of type unknown: Polars names the new columns differently from
 #   pandas' labels; pivot(on=key, index=other keys) on the collected groups, columns sorted first
-grid = hrs.collect().to_pandas().set_index(["hull", "repair"])["hours"].unstack(
-    fill_value=0,
+grid = (
+    hrs.collect()
+    .to_pandas()
+    .set_index(["hull", "repair"])["hours"]
+    .unstack(fill_value=0)
 )
 grid["all_repairs"] = grid.sum(axis=1)
 grid = grid.sort_values("all_repairs", ascending=False)
@@ -428,10 +431,10 @@ per_boat = (
 )
 # TODO(porter): frame.merge: the right side is not a frame porter tracks: make it a LazyFrame
 #   (pl.from_pandas(...).lazy()) where it is built
-per_boat = per_boat.collect().to_pandas().merge(
-    boats.reset_index(),
-    on="boat",
-    how="inner",
+per_boat = (
+    per_boat.collect()
+    .to_pandas()
+    .merge(boats.reset_index(), on="boat", how="inner")
 )
 per_boat = pl.from_pandas(per_boat).lazy()
 per_boat = per_boat.with_columns(
@@ -468,15 +471,20 @@ slip = (
     .lazy()
 )
 
-# TODO(porter): frame.pivot_table: margins of sum of a column not known to be whole numbers;
-#   group_by the keys, then DataFrame.pivot(on, index, values) with the columns sorted
-fees = slip.collect().to_pandas().pivot_table(
-    index="slip",
-    columns="month",
-    values="fee_gbp",
-    aggfunc="sum",
-    fill_value=0,
-    margins=True,
+# TODO(porter): frame.pivot_table: margins of sum of a column not known to be whole numbers or
+#   floats (floats: sum, mean, min, max and count); group_by the keys, then DataFrame.pivot(on,
+#   index, values) with the columns sorted
+fees = (
+    slip.collect()
+    .to_pandas()
+    .pivot_table(
+        index="slip",
+        columns="month",
+        values="fee_gbp",
+        aggfunc="sum",
+        fill_value=0,
+        margins=True,
+    )
 )
 print(fees)
 fees = fees.rename_axis(columns=None).reset_index()

@@ -288,13 +288,7 @@ log = (
 print(log.select("drift", "drift_s", "stopped").head(10).collect())
 
 # In[4]: the tower cards; the Market Hall card was copied after the overhaul
-towers = (
-    towers
-    .with_row_index("__row")
-    .unique("tower", keep="last")
-    .sort("__row")
-    .drop("__row")
-)
+towers = towers.filter(pl.col("tower").is_last_distinct())
 log = (
     log
     .rename(

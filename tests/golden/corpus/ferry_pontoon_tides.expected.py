@@ -495,7 +495,11 @@ print(by_stage.collect())
 # %% the longest stay, and the biggest debt
 # TODO(porter): series.idxmax: the extreme of a column whose type porter does not know
 # TODO(porter): frame.loc: rows chosen by index label: the index is not data in Polars
-longest = arrivals.collect().to_pandas().loc[arrivals.select(pl.col("hours")).collect().to_series().to_pandas().idxmax(), "boat"]
+longest = (
+    arrivals.collect()
+    .to_pandas()
+    .loc[arrivals.select(pl.col("hours")).collect().to_series().to_pandas().idxmax(), "boat"]
+)
 print("longest stay:", longest)
 debtor = visits.loc[visits["balance"].idxmin(), "visit"]
 print("largest debt on visit", debtor)

@@ -352,13 +352,7 @@ per_day = (
     .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
     .sort(["gaffer", "day"])
 )
-rates = (
-    gaffers
-    .with_row_index("__row")
-    .unique("gaffer", keep="last")
-    .sort("__row")
-    .drop("__row")
-)
+rates = gaffers.filter(pl.col("gaffer").is_last_distinct())
 per_day = (
     per_day
     .rename(

@@ -224,13 +224,7 @@ milk = milk.with_columns(
 )
 
 # the wage list has Luzi twice (a raise in July): the later line counts
-wages = (
-    herders
-    .with_row_index("__row")
-    .unique("herder_key", keep="last")
-    .sort("__row")
-    .drop("__row")
-)
+wages = herders.filter(pl.col("herder_key").is_last_distinct())
 milk = (
     milk
     .rename(

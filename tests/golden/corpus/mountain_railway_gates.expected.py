@@ -616,11 +616,23 @@ load = (
 )
 # TODO(porter): series.idxmax: the extreme of a column whose type porter does not know
 # TODO(porter): frame.loc: rows chosen by index label: the index is not data in Polars
-fullest = load.collect().to_pandas().set_index("index").rename_axis(None).loc[load.select(pl.col("index"), pl.col("heads")).collect().to_pandas().set_index("index")["heads"].idxmax()]
+fullest = (
+    load.collect()
+    .to_pandas()
+    .set_index("index")
+    .rename_axis(None)
+    .loc[load.select(pl.col("index"), pl.col("heads")).collect().to_pandas().set_index("index")["heads"].rename_axis(None).idxmax()]
+)
 print("fullest train:", fullest["train"], "from", fullest["station"], int(fullest["heads"]), "heads")
 # TODO(porter): series.idxmin: the extreme of a column whose type porter does not know
 # TODO(porter): frame.loc: rows chosen by index label: the index is not data in Polars
-emptiest = load.collect().to_pandas().set_index("index").rename_axis(None).loc[load.select(pl.col("index"), pl.col("heads")).collect().to_pandas().set_index("index")["heads"].idxmin()]
+emptiest = (
+    load.collect()
+    .to_pandas()
+    .set_index("index")
+    .rename_axis(None)
+    .loc[load.select(pl.col("index"), pl.col("heads")).collect().to_pandas().set_index("index")["heads"].rename_axis(None).idxmin()]
+)
 print("emptiest train:", emptiest["train"], emptiest["heads"])
 load = load.with_columns(full=pl.col("full").round(3))
 (

@@ -216,6 +216,18 @@ def pandas_to_datetime(text, coerce):
     return read(pl.coalesce(guessed if coerce else [*guessed, text]), not coerce)
 
 
+def pandas_dates_as_text(groups, key, fmt):
+    """The groups of a pivot with their date `key` written with the strftime format `fmt`
+    (Polars' to_string of each date): the names the script gives the pivoted columns next
+    (df.columns = df.columns.strftime(fmt)). Two dates written alike would make pandas keep
+    two columns of one name, which a Polars frame cannot hold: that stops here."""
+    dates = groups.get_column(key).unique()
+    if dates.dt.to_string(fmt).n_unique() != dates.len():
+        raise ValueError(f"two dates are written alike with {fmt!r}: pandas keeps two columns "
+                         "of one name, a Polars frame cannot")
+    return groups.with_columns(pl.col(key).dt.to_string(fmt))
+
+
 def pandas_div(numerator, divisor):
     """numerator / divisor, each value divided as pandas divides it: Polars multiplies by the
     reciprocal of a single divisor, which can be one binary digit off the quotient (and a later
@@ -332,16 +344,21 @@ rota = rota.with_columns(volunteer=clean(pl.col("volunteer")))
 rota = rota.drop_nulls("volunteer").collect().lazy()
 print(rota.head(5).collect())
 
-# TODO(porter): frame.pivot_table: margins of sum of a column not known to be whole numbers;
-#   group_by the keys, then DataFrame.pivot(on, index, values) with the columns sorted
-hours = rota.collect().to_pandas().pivot_table(
-    index=["volunteer"],
-    columns=["role"],
-    values="hours",
-    aggfunc="sum",
-    fill_value=0,
-    margins=True,
-    margins_name="total",
+# TODO(porter): frame.pivot_table: margins of sum of a column not known to be whole numbers or
+#   floats (floats: sum, mean, min, max and count); group_by the keys, then DataFrame.pivot(on,
+#   index, values) with the columns sorted
+hours = (
+    rota.collect()
+    .to_pandas()
+    .pivot_table(
+        index=["volunteer"],
+        columns=["role"],
+        values="hours",
+        aggfunc="sum",
+        fill_value=0,
+        margins=True,
+        margins_name="total",
+    )
 )
 print(hours)
 busiest = hours.drop(index="total")["total"].idxmax()
@@ -385,7 +402,10 @@ per = (
 # TODO(porter): series.xs: a label of another type than the key (or a key of unknown type); filter
 #   the key column and drop it
 print(
-    per.collect().to_pandas().set_index(["show", "weekday"])["slots"].xs("Drive", level="show"),
+    per.collect()
+    .to_pandas()
+    .set_index(["show", "weekday"])["slots"]
+    .xs("Drive", level="show"),
 )
 quiet = (
     per
@@ -435,8 +455,8 @@ ways = (
     .with_columns((pl.selectors.float() - pl.selectors.by_name("show")).round(3))
 )
 print(ways.collect())
-# TODO(porter): pd.crosstab: margins with values= or with several keys; group_by both keys and
-#   pl.len(), then pivot with the columns sorted
+# TODO(porter): pd.crosstab: margins with an index key not known to be text (the total row's label
+#   goes into it); group_by both keys and pl.len(), then pivot with the columns sorted
 sums = pd.crosstab(
     pledges.select(pl.col("show")).collect().to_series().to_pandas(),
     pledges.select(pl.col("method")).collect().to_series().to_pandas(),
@@ -504,19 +524,19 @@ board = pl.from_pandas(board).lazy()
 print(board.collect())
 
 # %% who took the calls, day by day, in long form
-# TODO(porter): frame.pivot_table: a datetime columns key: pandas labels the new columns with its
-#   values (Timestamps, True/False), Polars with their text; group_by the keys, then
-#   DataFrame.pivot(on, index, values) with the columns sorted
-taken = pledges.collect().to_pandas().pivot_table(
-    index="taken_by",
-    columns="day",
-    values="amount",
-    aggfunc="count",
-    fill_value=0,
+taken = (
+    pledges
+    .drop_nulls(["taken_by", "day"])
+    .group_by(["taken_by", "day"])
+    .agg(pl.col("amount").count().cast(pl.Int64))
+    .sort("day")
+    .collect()
+    .pipe(pandas_dates_as_text, "day", "%a %d")
+    .pivot(on="day", index="taken_by", values="amount")
+    .sort("taken_by")
+    .fill_null(0)
+    .lazy()
 )
-taken.columns = taken.columns.strftime("%a %d")
-taken = taken.reset_index()
-taken = pl.from_pandas(taken).lazy()
 long = (
     taken
     .with_row_index("__melt_row")

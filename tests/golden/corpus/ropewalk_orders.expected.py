@@ -14,29 +14,31 @@ PANDAS_NA_VALUES = [
 ]
 
 
-def pandas_reduce(values, how="sum"):
-    """The sum, mean or std (how="sum" / "mean" / "std") of a float column as pandas
-    computes them: numpy's pairwise sum of the values, a missing one counted 0 in its place;
-    the mean over the count of values present; the std from the squared distances to that
-    mean (0 where a value is missing), added the same way, over count - 1, and its square
-    root. NaN where there are too few values. Polars adds in another order, and the last
-    digit can differ (55.080000000000005 for 55.08000000000001)."""
+def pandas_reduce(values, how="sum", ddof=1):
+    """The sum, mean, std or var (how="sum" / "mean" / "std" / "var") of a column of numbers
+    as pandas computes them: numpy's pairwise sum of the values as floats, a missing one
+    counted 0 in its place; the mean over the count of values present; the var from the
+    squared distances to that mean (0 where a value is missing), added the same way, over
+    count - ddof, and the std its square root. NaN where there are too few values. Polars
+    adds in another order, and the last digit can differ (55.080000000000005 for
+    55.08000000000001, a std of 3.265986323710904 for 3.2659863237109046)."""
     def reduce(column):
         import numpy as np
 
         present = column.is_not_null().to_numpy()
-        numbers = column.fill_null(0.0).to_numpy()
+        numbers = column.cast(pl.Float64).fill_null(0.0).to_numpy()
         total = numbers.sum()
         if how == "sum":
             return total
         count = int(present.sum())
         if how == "mean":
             return total / count if count else float("nan")
-        if count < 2:
+        if count <= ddof:
             return float("nan")
         squares = (total / count - numbers) ** 2
         squares[~present] = 0.0
-        return float(np.sqrt(squares.sum() / (count - 1)))
+        spread = squares.sum() / (count - ddof)
+        return float(np.sqrt(spread) if how == "std" else spread)
 
     return values.map_batches(reduce, returns_scalar=True, return_dtype=pl.Float64)
 

@@ -408,12 +408,16 @@ use = pl.from_pandas(use).lazy()
 # TODO(porter): frame.pivot_table: a columns key that is not text: pandas labels the columns with
 #   its values, Polars with their text; group_by the keys, then DataFrame.pivot(on, index, values)
 #   with the columns sorted
-crews = book.collect().to_pandas().pivot_table(
-    index=["crew"],
-    columns=["session"],
-    values=["minutes", "booking"],
-    aggfunc={"minutes": "sum", "booking": "count"},
-    fill_value=0,
+crews = (
+    book.collect()
+    .to_pandas()
+    .pivot_table(
+        index=["crew"],
+        columns=["session"],
+        values=["minutes", "booking"],
+        aggfunc={"minutes": "sum", "booking": "count"},
+        fill_value=0,
+    )
 )
 print(crews)
 mins = crews["minutes"]

@@ -416,13 +416,7 @@ tags = (
 )   # 0 kg wet: empty bag, still tagged
 
 # the re-rigged line 7 is in the lines sheet twice: keep the newest (last) row
-lines = (
-    lines
-    .with_row_index("__row")
-    .unique("line", keep="last")
-    .sort("__row")
-    .drop("__row")
-)
+lines = lines.filter(pl.col("line").is_last_distinct())
 per_line = (
     tags
     .with_columns(_porter_rows_in_key_order=pl.col("line").is_sorted())

@@ -11,6 +11,21 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_aligned(frame, values, key):
+    """The frame with the columns of `values` (its labels `key` and the values) joined on
+    `key` as pandas aligns a Series set into a frame: each row gets the value of its label
+    (missing where the Series lacks it, a missing label matching a missing one); a frame
+    without rows gets the Series' labels as its rows, as pandas gives it them."""
+    joined = frame.join(values, on=key, how="left", nulls_equal=True, maintain_order="left")
+    rows = frame.select(pl.len().alias("_porter_rows"))
+    taken = (
+        values.join(rows, how="cross", maintain_order="left")
+        .filter(pl.col("_porter_rows") == 0)
+        .drop("_porter_rows")
+    )
+    return pl.concat([joined, taken], how="diagonal_relaxed")
+
+
 def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None, floats=True):
     """Each group's sum of floats (mean=True: mean) as pandas computes it, from the group's
     values as a list (pl.col(...) in an agg). pandas adds a group with a compensated (Kahan)
@@ -493,13 +508,10 @@ ha = (
     .sort("grower")
 )
 stats = (
-    stats
-    .join(
+    pandas_aligned(
+        stats,
         ha.select(pl.col("grower"), pl.col("hectares").alias("_porter_aligned")),
-        on="grower",
-        how="left",
-        nulls_equal=True,
-        maintain_order="left",
+        "grower",
     )
     .with_columns(hectares=pl.col("_porter_aligned"))
     .drop("_porter_aligned")

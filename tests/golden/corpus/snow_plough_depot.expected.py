@@ -244,13 +244,7 @@ blades = (
 print(blades.collect())
 
 # routes: against the planned length, busiest days ranked
-routes = (
-    routes
-    .with_row_index("__row")
-    .unique("route", keep="last")
-    .sort("__row")
-    .drop("__row")
-)
+routes = routes.filter(pl.col("route").is_last_distinct())
 daily = sheets.groupby(["day", "route"]).agg(shifts=("card", "count"), km=("km", "sum"),
                                              salt_t=("salt_t", "sum"), hours=("hours", "sum")).reset_index()
 daily = pl.from_pandas(daily).lazy()

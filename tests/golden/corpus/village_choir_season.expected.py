@@ -12,6 +12,14 @@ PANDAS_NA_VALUES = [
 ]
 
 
+def pandas_values(values):
+    """A column's values as pandas gives them to Python: pandas' own Series where one is
+    missing (nan for it, and floats for whole numbers), otherwise the Polars Series, whose
+    numbers, texts and True/False are the same Python values, so that pandas is not imported
+    for them."""
+    return values.to_pandas() if values.null_count() else values
+
+
 def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None, floats=True):
     """Each group's sum of floats (mean=True: mean) as pandas computes it, from the group's
     values as a list (pl.col(...) in an agg). pandas adds a group with a compensated (Kahan)
@@ -484,8 +492,14 @@ print(
     .collect()
     .item(),
 )
-thin = wide.filter(pl.col("tenor") < 2).collect().to_pandas().set_index("evening").rename_axis(columns="part").index
-print("thin tenor evenings:", list(thin.strftime("%d %b")))
+thin = wide.filter(pl.col("tenor") < 2).select("evening")
+print(
+    "thin tenor evenings:",
+    pandas_values(
+        thin.select(pl.col("evening").dt.to_string("%d %b")).collect().to_series(),
+    )
+    .to_list(),
+)
 wide = wide.with_columns(evening=pl.col("evening").dt.to_string("%Y-%m-%d"))
 long = (
     wide
@@ -625,10 +639,9 @@ office = office.with_columns(
 # TODO(porter): frame.pivot_table: sum without fill_value of a column not known to be numbers:
 #   pandas makes every cell float when one is missing; group_by the keys, then DataFrame.pivot(on,
 #   index, values) with the columns sorted
-by_seller = tix.collect().to_pandas().pivot_table(
-    index="seller",
-    columns="concert",
-    values="sold",
-    aggfunc="sum",
+by_seller = (
+    tix.collect()
+    .to_pandas()
+    .pivot_table(index="seller", columns="concert", values="sold", aggfunc="sum")
 )
 print(by_seller)

@@ -313,7 +313,14 @@ loans = (
 
 # TODO(porter): groupby.agg: longest_idle is not one expression (a loop or a block that only a
 #   Python call can run): write it as an aggregation
-idle = loans.select("tool", "out_date").collect().to_pandas().groupby("tool")["out_date"].agg(longest_idle).reset_index()
+idle = (
+    loans.select("tool", "out_date")
+    .collect()
+    .to_pandas()
+    .groupby("tool")["out_date"]
+    .agg(longest_idle)
+    .reset_index()
+)
 idle = pl.from_pandas(idle).lazy()
 idle = idle.rename({"out_date": "longest_idle_days"}, strict=False).collect().lazy()
 print(idle.head(5).collect())
