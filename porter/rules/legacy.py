@@ -13,6 +13,7 @@ accepts never changes meaning.
 
 from __future__ import annotations
 
+import ast
 import re
 
 # an offset's old base name -> pandas 3's (date_range, resample, Grouper, dt.floor / ceil / round)
@@ -566,6 +567,80 @@ def series_iteritems(call: PandasCall, ctx: RuleContext) -> Value:
 
 _RENAMED_METHODS = {"iteritems": "items", "applymap": "map", "valid": "dropna", "pad": "ffill",
                     "backfill": "bfill"}
+
+
+_FILL_METHODS = {"ffill": "ffill", "pad": "ffill", "bfill": "bfill", "backfill": "bfill"}
+
+
+APPEND_FUNCTION = "pandas_append"
+APPEND_DEFINITION = """\
+def pandas_append(appended_to, other, ignore_index=False, verify_integrity=False, sort=False):
+    \"\"\"appended_to.append(other) as pandas 1.5 ran it (DataFrame.append and Series.append,
+    which pandas 2 removed): pd.concat, where a dict or a Series given to a frame is one row
+    first (Series(other).to_frame().T.infer_objects()) and a list of dicts a frame; an Index's
+    own append is kept.\"\"\"
+    import pandas
+
+    if isinstance(appended_to, pandas.Index):
+        return appended_to.append(other)
+    if isinstance(appended_to, pandas.Series):
+        if isinstance(other, (list, tuple)):
+            return pandas.concat([appended_to, *other], ignore_index=ignore_index,
+                                 verify_integrity=verify_integrity)
+        return pandas.concat([appended_to, other], ignore_index=ignore_index,
+                             verify_integrity=verify_integrity)
+    if isinstance(other, (pandas.Series, dict)):
+        if isinstance(other, dict):
+            if not ignore_index:
+                raise TypeError("Can only append a dict if ignore_index=True")
+            other = pandas.Series(other)
+        if other.name is None and not ignore_index:
+            raise TypeError("Can only append a Series if ignore_index=True or if the Series "
+                            "has a name")
+        names = pandas.Index([other.name], name=appended_to.index.name).names
+        other = other.to_frame().T.infer_objects().rename_axis(names)
+    elif isinstance(other, list) and other and not isinstance(other[0], pandas.DataFrame):
+        other = pandas.DataFrame(other)
+        if appended_to.index.name is not None and not ignore_index:
+            other.index.name = appended_to.index.name
+    to_concat = [appended_to, *other] if isinstance(other, (list, tuple)) else [appended_to, other]
+    return pandas.concat(to_concat, ignore_index=ignore_index, verify_integrity=verify_integrity,
+                         sort=sort)
+"""
+
+
+def modern_call(receiver: str, name: str, args: list[tuple[str | None, str]]) -> str | None:
+    """`receiver.name(args)` of a pandas object kept on pandas, as it runs under pandas 3.1
+    (the whole call), given the receiver's code and the arguments as (keyword or None, text);
+    None when there is nothing to rewrite or no one way to.
+
+    append(other, ignore_index, verify_integrity, sort) (removed in pandas 2.0) is
+    pandas_append(receiver, ...), which does what pandas 1.5's DataFrame.append and
+    Series.append did (APPEND_DEFINITION). fillna(method="ffill" / "bfill" / "pad" /
+    "backfill") is ffill() / bfill() with its limit, axis and inplace."""
+    positional = [text for keyword, text in args if keyword is None]
+    keywords = {keyword: text for keyword, text in args if keyword is not None}
+    if name == "append":
+        if len(positional) + len(keywords) > 4 or not set(keywords) <= {
+                "other", "ignore_index", "verify_integrity", "sort"} or not args:
+            return None
+        written = [text if keyword is None else f"{keyword}={text}" for keyword, text in args]
+        return f"{APPEND_FUNCTION}({receiver}, {', '.join(written)})"
+    if name == "fillna" and "method" in keywords and not positional \
+            and "value" not in keywords and set(keywords) <= {"method", "limit", "axis", "inplace"}:
+        try:
+            method = _FILL_METHODS[ast.literal_eval(keywords["method"])]
+        except (ValueError, SyntaxError, KeyError, TypeError):
+            return None
+        rest = ", ".join(f"{k}={v}" for k, v in keywords.items() if k != "method")
+        return f"{receiver}.{method}({rest})"
+    if name == "lookup" and len(positional) == 2 and not keywords:
+        # DataFrame.lookup (removed in 2.0) in the source of 1.5 (read): each (row, column)
+        # label pair's value, converted from objects as maybe_convert_objects does
+        return (f"(lambda frame, rows, cols: pd.Series([frame.at[r, c] for r, c in zip(rows, cols)], "
+                f"dtype=object).infer_objects().to_numpy())({receiver}, {positional[0]}, {positional[1]})")
+    modern = modern_method(name, args)
+    return None if modern is None else f"{receiver}{modern}"
 
 
 def modern_method(name: str, args: list[tuple[str | None, str]]) -> str | None:
