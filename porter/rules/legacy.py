@@ -14,6 +14,8 @@ accepts never changes meaning.
 from __future__ import annotations
 
 import ast
+
+import libcst as cst
 import re
 
 # an offset's old base name -> pandas 3's (date_range, resample, Grouper, dt.floor / ceil / round)
@@ -758,3 +760,75 @@ def without_infer_datetime_format(call: PandasCall, ctx: RuleContext) -> PandasC
                   "or NaT with errors=\"coerce\"", 0.9)
     kwargs = {k: v for k, v in call.kwargs.items() if k != "infer_datetime_format"}
     return PandasCall(call.receiver, call.name, call.args, kwargs, call.node)
+
+
+@rule("groupby.append_rows")
+def group_append_rows(call: PandasCall, ctx: RuleContext) -> Value:
+    """acc = pd.DataFrame(); for key, rows in df.groupby(k): acc = acc.append({"c": value,
+    ...}, ignore_index=True) -> df.group_by(k).agg(values) sorted by the keys, the columns in
+    the dict's order.
+
+    The loop (Engine.group_appends hands it here, with acc made empty just before) appended
+    one row per group, the groups in sorted key order, rows of a missing key left out; each
+    value is the key or a reduction of the group's rows (as in groupby.apply with
+    pd.Series({...})). DataFrame.append (pandas 1.5, read) made each dict a row through
+    Series(dict): with a text value (a text key) each column keeps its own type; with numbers
+    only, one float makes every column float (Series of ints and floats), as the result here
+    does (at run time where the types are not known).
+    Caveats: on an empty frame the loop never ran and pandas' frame has no columns, where this
+    one has the dict's (0.95); a key given as a list of one (groupby(["k"])) is the key itself
+    as pandas 1.x gave it (pandas 2 and 3 give a tuple).
+    """
+    from porter.rules.groupby import _BodyReader, aggregate
+
+    grouped = call.receiver
+    assert isinstance(grouped, Grouped)
+    keys, rows, items = call.args[0].const  # type: ignore[attr-defined]
+    if grouped.selection is not None or grouped.prepared or grouped.pandas is not None \
+            or grouped.frame.index or not grouped.sort or not grouped.dropna:
+        raise Unsupported("a loop over a groupby of selected columns, a computed key, a "
+                          "labelled table, sort=False or dropna=False")
+    if len(keys) != len(grouped.keys) or any(not isinstance(k, str) for k in grouped.keys):
+        raise Unsupported("a loop whose key names do not match the groupby's keys")
+    frame = grouped.frame
+    reader = _BodyReader(rows, grouped, ctx)
+    exprs, names, kinds = [], [], []
+    selected: list[Code] = []
+    for name, node in items:
+        if isinstance(node, cst.Name) and node.value in keys:
+            column = grouped.keys[keys.index(node.value)]
+            selected.append(emit.col(column).method("alias", name) if column != name
+                            else emit.col(column))
+            kinds.append(frame.dtype(column))
+            continue
+        value = reader.agg(node)
+        if value.is_test:
+            raise Unsupported("a value that is True/False (pandas keeps it in an object column)")
+        if name in grouped.keys:
+            raise Unsupported(f"a value named like the key column {name!r}")
+        exprs.append(value.code.method("alias", name))
+        names.append(name)
+        kinds.append(None if value.kinds is None else
+                     "int" if value.kinds == frozenset({"int"}) else
+                     "float" if value.kinds == frozenset({"float"}) else "mixed")
+        selected.append(emit.col(name))
+    table = aggregate(grouped, exprs, names, ctx)
+    if not isinstance(table, Frame):
+        raise Unsupported("the values make no frame")
+    code = table.code.method("select", *selected)
+    numbers = {"int", "float"}
+    if any(k is not None and k not in numbers for k in kinds):
+        pass  # a text value in every row: each column keeps its own type
+    elif all(k in numbers for k in kinds):
+        if "float" in kinds:
+            code = code.method("cast", emit.atom("pl.Float64"))
+    else:
+        # numbers only, the types not all known: one float column makes every column float
+        code = code.method("pipe", emit.atom(
+            "lambda t: t.cast(pl.Float64) if all(d.is_numeric() for d in "
+            "t.collect_schema().dtypes()) and any(d.is_float() for d in "
+            "t.collect_schema().dtypes()) else t"))
+    ctx.lower("on an empty frame the loop never runs: pandas' frame has no columns, this one "
+              "has the dict's", 0.95)
+    return Frame(code, columns=tuple(name for name, _ in items), labels_intact=True,
+                 binding=None)

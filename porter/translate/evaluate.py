@@ -176,6 +176,9 @@ class Services:
     # appended to each
     frame_lists: frozenset[str] = frozenset()
     frame_lists_refused: set[str] = field(default_factory=set)
+    # values computed for an expression from the statements after it, by the node's id (the
+    # node kept to check it): `acc = pd.DataFrame()` filled by the loop that follows it
+    values_given: dict[int, tuple[cst.CSTNode, "Value"]] = field(default_factory=dict)
     frame_list_members: dict[str, list[Frame]] = field(default_factory=dict)
 
 
@@ -195,6 +198,10 @@ class Evaluator:
         known = self._memo.get(id(node))
         if known is not None and known[0] is node:
             return known[1]
+        given = self.services.values_given.get(id(node))
+        if given is not None and given[0] is node:
+            # what the statements around this one compute (Engine.group_appends)
+            return given[1]
         method = getattr(self, f"_eval_{type(node).__name__}", None)
         value = method(node) if method is not None else self.generic(node)
         self._memo[id(node)] = (node, value)
