@@ -764,11 +764,10 @@ def without_infer_datetime_format(call: PandasCall, ctx: RuleContext) -> PandasC
 
 @rule("groupby.append_rows")
 def group_append_rows(call: PandasCall, ctx: RuleContext) -> Value:
-    """acc = pd.DataFrame(); for key, rows in df.groupby(k): acc = acc.append({"c": value,
-    ...}, ignore_index=True) -> df.group_by(k).agg(values) sorted by the keys, the columns in
-    the dict's order.
+    """a loop appending one dict row per group -> df.group_by(k).agg(values) sorted by the keys.
 
-    The loop (Engine.group_appends hands it here, with acc made empty just before) appended
+    acc = pd.DataFrame(); for key, rows in df.groupby(k): acc = acc.append({"c": value, ...},
+    ignore_index=True): the columns in the dict's order. The loop (Engine.group_appends hands it here, with acc made empty just before) appended
     one row per group, the groups in sorted key order, rows of a missing key left out; each
     value is the key or a reduction of the group's rows (as in groupby.apply with
     pd.Series({...})). DataFrame.append (pandas 1.5, read) made each dict a row through
