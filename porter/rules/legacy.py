@@ -831,3 +831,31 @@ def group_append_rows(call: PandasCall, ctx: RuleContext) -> Value:
               "has the dict's", 0.95)
     return Frame(code, columns=tuple(name for name, _ in items), labels_intact=True,
                  binding=None)
+
+
+# methods pandas 2 or 3 removed whose names nothing else in pandas has: a script calling one
+# was written for an older pandas (append and pad are left out: lists and strings have them)
+_REMOVED_NAMES = frozenset({"iteritems", "applymap", "as_matrix", "get_value", "set_value",
+                            "lookup", "ix", "valid", "rolling_mean", "rolling_sum",
+                            "expanding_mean", "ewma", "backfill"})
+
+
+def written_for_older_pandas(module: object) -> bool:
+    """Whether the script (Python's ast.Module) uses an API pandas 2 or 3 removed: .iteritems(),
+    .applymap(), .ix[...], .lookup(), fillna(method=...), pd.np, ... It was written for pandas
+    1.x, whose meaning of a call that pandas 3 changed (groupby.apply passing the key columns)
+    is the one it relied on."""
+    import ast as python_ast
+
+    if not isinstance(module, python_ast.Module):
+        return False
+    for node in python_ast.walk(module):
+        if isinstance(node, python_ast.Attribute) and (
+                node.attr in _REMOVED_NAMES
+                or node.attr == "np" and isinstance(node.value, python_ast.Name)
+                and node.value.id in ("pd", "pandas")):
+            return True
+        if isinstance(node, python_ast.Call) and isinstance(node.func, python_ast.Attribute) \
+                and node.func.attr == "fillna" and any(k.arg == "method" for k in node.keywords):
+            return True
+    return False
