@@ -620,6 +620,9 @@ def modern_call(receiver: str, name: str, args: list[tuple[str | None, str]]) ->
     pandas_append(receiver, ...), which does what pandas 1.5's DataFrame.append and
     Series.append did (APPEND_DEFINITION). fillna(method="ffill" / "bfill" / "pad" /
     "backfill") is ffill() / bfill() with its limit, axis and inplace."""
+    if receiver.rsplit(".", 1)[-1] in ("str", "dt", "cat", "sparse", "plot", "list",
+                                       "struct"):
+        return None  # an accessor's method (s.str.pad) is no frame's or Series'
     positional = [text for keyword, text in args if keyword is None]
     keywords = {keyword: text for keyword, text in args if keyword is not None}
     if name == "append":

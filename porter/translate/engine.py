@@ -987,10 +987,14 @@ class _Walker:
         if found is None:
             return False
         made, acc, keys, rows, items = found
+        self.services.values_given.pop(id(made), None)  # what an earlier pass found
         uses, reads = self.services.name_uses, _name_counts(loop.body)
         if any(uses.get(name, 0) != reads.get(name, 0) + 1 for name in (*keys, rows)) \
                 or reads.get(acc, 0) != 2 or any(name in env for name in (*keys, rows)):
             return False  # a loop name read after the loop, or acc read in the values
+        if any(isinstance(env.get(name), PandasValue)
+               for name in _names_read(self.services.code_for(loop.iter))):
+            return False  # the frame is on pandas here: the loop stays pandas code
         evaluator = Evaluator(env, self.services)
         maker = evaluator.eval(made.func)
         if not (isinstance(maker, Module) and maker.qualname == "pandas.DataFrame"):

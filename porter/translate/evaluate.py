@@ -1315,12 +1315,32 @@ class Evaluator:
         return PandasValue(code, sites=value.sites + (site,))
 
     # -- everything else ------------------------------------------------------------------------
+    def modern_chain(self, node: cst.BaseExpression) -> str | None:
+        """A chain of calls on a pandas object kept as written, with the calls along it as
+        pandas 3.1 runs them (handover.modern_chain: old frequency aliases, removed methods);
+        None when it starts from no pandas object or nothing changes."""
+        if not isinstance(node, (cst.Call, cst.Attribute, cst.Subscript)):
+            return None
+        base = _chain_base(node)
+        if base is node or not isinstance(self.eval(base), PandasValue):
+            return None
+        from porter.rules.legacy import written_for_older_pandas
+        modern = handover.modern_chain(
+            node, older=written_for_older_pandas(self.services.python_module))
+        if modern is node:
+            return None
+        text = self.source(modern)
+        return text if text != self.source(node) else None
+
     def generic(self, node: cst.BaseExpression, display: bool = False) -> Value:
         """Keep `node` as written, rewriting pandas values found inside it."""
         rewriter = ChildRewriter(self, node, display)
         new_node = node.visit(rewriter)
         if not rewriter.changed:
             if rewriter.pandas_inside:
+                modern = self.modern_chain(node)
+                if modern is not None:
+                    return PandasValue(Code(modern, precedence(node)), sites=tuple(rewriter.sites))
                 return PandasValue(Code(self.standalone(node), precedence(node)),
                                    sites=tuple(rewriter.sites))
             return Opaque(Code(self.standalone(node), precedence(node)), node=node,
@@ -1330,6 +1350,17 @@ class Evaluator:
             # built on a value handed over to pandas: a pandas object, never a plain scalar
             return PandasValue(Code(text, precedence(node)), sites=tuple(rewriter.sites))
         return Opaque(Code(text, precedence(node)), sites=tuple(rewriter.sites))
+
+
+def _chain_base(node: cst.BaseExpression) -> cst.BaseExpression:
+    """The object a chain of calls, attributes and subscripts starts from."""
+    while True:
+        if isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute):
+            node = node.func.value
+        elif isinstance(node, (cst.Attribute, cst.Subscript)):
+            node = node.value
+        else:
+            return node
 
 
 def _model_array(node: cst.BaseExpression) -> bool:

@@ -498,6 +498,49 @@ def _modern_method(call: PandasCall, node: cst.Call, args: list[str],
     return modern_call(receiver, func.attr.value, given)
 
 
+def modern_chain(node: cst.BaseExpression, older: bool = False) -> cst.BaseExpression:
+    """A chain of calls on a pandas object kept as written (`df.set_index("t").resample("M")
+    [["a"]].sum()`), each call along it (not inside its arguments) written as it runs under
+    pandas 3.1: old frequency aliases renamed, removed methods in today's spelling
+    (rules/legacy.py). `older`: the script was written for pandas 1.x, whose
+    `df.groupby(k).apply(f)` passed f the key columns too: `df.groupby(k)[list(df.columns)]
+    .apply(f)` passes them under pandas 3.1 (df a name: it is read twice)."""
+    from porter.rules.legacy import modern_call
+
+    if isinstance(node, cst.Subscript):
+        return node.with_changes(value=modern_chain(node.value, older))
+    if isinstance(node, cst.Attribute):
+        return node.with_changes(value=modern_chain(node.value, older))
+    if not (isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute)):
+        return node
+    func = node.func.with_changes(value=modern_chain(node.func.value, older))
+    grouping = func.value
+    if older and func.attr.value == "apply" \
+            and not any(arg.keyword and arg.keyword.value == "include_groups" for arg in node.args) \
+            and isinstance(grouping, cst.Call) and isinstance(grouping.func, cst.Attribute) \
+            and grouping.func.attr.value == "groupby" and isinstance(grouping.func.value, cst.Name) \
+            and grouping.args and all(arg.keyword is None or arg.keyword.value in (
+                "by", "sort", "dropna", "group_keys", "observed") for arg in grouping.args):
+        frame = grouping.func.value.value
+        func = func.with_changes(value=cst.parse_expression(
+            f"{cst.Module([]).code_for_node(grouping)}[list({frame}.columns)]"))
+    node = node.with_changes(func=func)
+    renamed = modern_frequencies(node)
+    if renamed:
+        node = node.with_changes(args=[
+            arg.with_changes(value=cst.SimpleString(f'"{renamed[i]}"')) if i in renamed else arg
+            for i, arg in enumerate(node.args)])
+    if any(arg.star for arg in node.args):
+        return node
+    code = cst.Module([]).code_for_node
+    text = modern_call(code(func.value), func.attr.value,
+                       [(arg.keyword.value if arg.keyword else None, code(arg.value))
+                        for arg in node.args])
+    if text is None:
+        return node
+    return cst.parse_expression(text).with_changes(lpar=node.lpar, rpar=node.rpar)
+
+
 def modern_frequencies(node: cst.CSTNode) -> dict[int, str]:
     """The arguments of a call kept on pandas that write a frequency alias pandas 3 rejects
     ("M", "15T"; rules/legacy.py), by their index, with pandas 3.1's name for it: the script

@@ -8,7 +8,7 @@ from typing import TYPE_CHECKING, Any
 import libcst as cst
 
 from porter.emit import code as emit
-from porter.emit.code import ATOM
+from porter.emit.code import ATOM, Code
 from porter.emit.fstrings import as_format_call, fit_in_fstring, forbidden_in
 from porter.model import SiteDraft
 from porter.translate import handover
@@ -107,6 +107,14 @@ class ChildRewriter(cst.CSTTransformer):
                      else evaluator.handed_to_unknown(value, node))
         original = evaluator.source(node)
         replacement = None
+        if isinstance(value, PandasValue) and not display and value.code.text == original \
+                and isinstance(node, (cst.Call, cst.Subscript, cst.Attribute)):
+            # pandas code kept as written: the calls along it as pandas 3.1 runs them
+            modern = handover.modern_chain(node)
+            if modern is not node and evaluator.source(modern) != original:
+                value = PandasValue(Code(evaluator.source(modern), precedence(node)),
+                                    sites=value.sites, rows=value.rows, frame=value.frame,
+                                    label_rows=value.label_rows)
         if value.code.text != original:
             try:
                 replacement = cst.parse_expression(value.code.text)
@@ -166,10 +174,19 @@ class ChildRewriter(cst.CSTTransformer):
             for_in = updated.for_in.with_changes(iter=self.replacements[id(original.for_in.iter)])
             return updated.with_changes(for_in=for_in)
         if isinstance(original, cst.Call) and id(original.func) in self.pandas_methods:
+            renamed = handover.modern_frequencies(original)
+            if renamed:
+                # a method of a pandas object given a frequency alias pandas 3 rejects
+                self.changed = True
+                updated = updated.with_changes(args=[  # type: ignore[attr-defined]
+                    a.with_changes(value=cst.SimpleString(f'"{renamed[i]}"')) if i in renamed else a
+                    for i, a in enumerate(updated.args)])  # type: ignore[attr-defined]
             modern = self._modern_call(original, updated)  # type: ignore[arg-type]
             if modern is not None:
                 self.changed = True
                 return modern
+            if renamed:
+                return updated
         if isinstance(original, cst.Call) and self._on_pandas(original):
             renamed = handover.modern_frequencies(original)
             if renamed:
