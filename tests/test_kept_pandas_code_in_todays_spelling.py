@@ -161,3 +161,46 @@ def _args(case: str) -> list[tuple[str | None, str]]:
     assert isinstance(call, ast.Call)
     return [(None, ast.unparse(a)) for a in call.args] + \
         [(k.arg, ast.unparse(k.value)) for k in call.keywords]
+
+
+@pytest.mark.parametrize("function", ['g.tail(1)', 'g.nlargest(1, "apples_kg")',
+                                      'g["apples_kg"].sum() + len(g)'])
+def test_a_groupby_apply_kept_on_pandas_passes_the_keys(pandas_1_5, tmp_path, function):
+    # blind, the frame is handed to pandas (its labels are read): the kept apply is given the
+    # key columns as pandas 1.5 gave them (pandas 3.1 leaves them out)
+    text = same_with_kept_code(pandas_1_5, tmp_path, f"""
+        import pandas as pd
+        log = pd.read_csv("data/pressings.csv")
+        log.drop_duplicates(inplace=True)
+        log["press"] = log["press"].fillna(method="ffill")
+        log["first"] = log.lookup(log.index, ["orchard"] * len(log))
+        out = log.groupby("press").apply(lambda g: {function})
+        out = out.reset_index(drop=True) if isinstance(out, pd.DataFrame) else out.reset_index()
+        out.to_csv("data/out.csv", index=False)
+    """)
+    assert "[list(log.columns)]" in text
+
+
+def test_a_chain_kept_on_pandas_renames_old_frequencies(pandas_1_5, tmp_path):
+    text = same_with_kept_code(pandas_1_5, tmp_path, """
+        import pandas as pd
+        log = pd.read_csv("data/pressings.csv")
+        log.drop_duplicates(inplace=True)
+        log["day"] = pd.to_datetime("2021-09-" + (log.index + 10).astype(str))
+        log["first"] = log.lookup(log.index, ["orchard"] * len(log))
+        weekly = log.groupby(pd.Grouper(key="day", freq="W"))["apples_kg"].sum().reset_index()
+        weekly.to_csv("data/weekly.csv", index=False)
+        monthly = log.set_index("day").resample("BM")["apples_kg"].sum().reset_index()
+        monthly.to_csv("data/monthly.csv", index=False)
+    """)
+    assert '"BME"' in text
+
+
+def test_a_script_of_todays_pandas_keeps_its_apply():
+    result = convert_source("""import pandas as pd
+log = pd.read_csv("data/pressings.csv")
+log["first"] = log.loc[log.index, "orchard"]
+out = log.groupby("press").apply(lambda g: g.tail(1))
+out.to_csv("out.csv")
+""")
+    assert "list(log.columns)" not in result.converted_text
