@@ -581,7 +581,7 @@ def pandas_append(appended_to, other, ignore_index=False, verify_integrity=False
     which pandas 2 removed): pd.concat, where a dict or a Series given to a frame is one row
     first (Series(other).to_frame().T.infer_objects()) and a list of dicts a frame; an Index's
     own append is kept.\"\"\"
-    import pandas
+    pandas = __import__("pandas")  # (no import statement: a second conversion leaves it be)
 
     if isinstance(appended_to, pandas.Index):
         return appended_to.append(other)
