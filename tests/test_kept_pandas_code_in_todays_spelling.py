@@ -206,3 +206,16 @@ out = log.groupby("press").apply(lambda g: g.tail(1))
 out.to_csv("out.csv")
 """)
     assert "list(log.columns)" not in result.converted_text
+
+
+def test_a_list_made_by_pandas_still_appends():
+    # a list from pandas code kept as written is no frame: its own append runs
+    import subprocess
+    import sys
+    from porter.rules.legacy import APPEND_DEFINITION
+    code = APPEND_DEFINITION + (
+        "import pandas as pd\nvalues = pd.Series([1, 2]).tolist()\n"
+        "print(pandas_append(values, 3), values)\n"
+        "print(list(pandas_append(pd.Index(['a']), pd.Index(['b']))))\n")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
+    assert out.stdout == "None [1, 2, 3]\n['a', 'b']\n"

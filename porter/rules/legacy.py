@@ -579,12 +579,12 @@ APPEND_DEFINITION = """\
 def pandas_append(appended_to, other, ignore_index=False, verify_integrity=False, sort=False):
     \"\"\"appended_to.append(other) as pandas 1.5 ran it (DataFrame.append and Series.append,
     which pandas 2 removed): pd.concat, where a dict or a Series given to a frame is one row
-    first (Series(other).to_frame().T.infer_objects()) and a list of dicts a frame; an Index's
-    own append is kept.\"\"\"
+    first (Series(other).to_frame().T.infer_objects()) and a list of dicts a frame; the append
+    of anything else (an Index, a list) is its own.\"\"\"
     pandas = __import__("pandas")  # (no import statement: a second conversion leaves it be)
 
-    if isinstance(appended_to, pandas.Index):
-        return appended_to.append(other)
+    if not isinstance(appended_to, (pandas.DataFrame, pandas.Series)):
+        return appended_to.append(other)  # an Index's own append, a list's
     if isinstance(appended_to, pandas.Series):
         if isinstance(other, (list, tuple)):
             return pandas.concat([appended_to, *other], ignore_index=ignore_index,
