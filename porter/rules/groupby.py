@@ -3434,6 +3434,9 @@ def groupby_apply(call: PandasCall, ctx: RuleContext) -> Value:
     if key is not None:
         raise ctx.todo(_key_read_reason(key))
     param, body = _applied_body(call, ctx)
+    rows = _rows_of_groups(param, body, grouped, call, ctx)
+    if rows is not None:
+        return rows
     reader = _BodyReader(param, grouped, ctx)
     series = _series_dict(body, ctx)
     names: list[str] = []
@@ -3479,6 +3482,120 @@ def groupby_apply(call: PandasCall, ctx: RuleContext) -> Value:
               "columns; Polars returns the function's", 0.95)
     return aggregate(grouped, exprs, names, ctx, series_name=None, is_series=series is None,
                      dtypes=[dtype] * len(names))
+
+
+_GROUP_ROW_METHODS = {"nlargest": ("n", "columns", "keep"), "nsmallest": ("n", "columns", "keep"),
+                      "head": ("n",), "tail": ("n",)}
+
+
+def _rows_of_groups(param: str, body: cst.BaseExpression, grouped: Grouped, call: PandasCall,
+                    ctx: RuleContext) -> Frame | None:
+    """apply(lambda g: g.nlargest(n, col)) (nsmallest, head(n), tail(n)) in a script written
+    for pandas 1.x (legacy.written_for_older_pandas): some rows of each group, every column
+    kept, as pandas 1.x gave them; None for another function or a script of today's pandas.
+
+    pandas before 3 passed each group with its key columns, so the rows keep every column; the
+    groups' rows come one group after another in sorted key order (rows of a missing key left
+    out), within a group as the method orders them (nlargest: by value, ties and then missing
+    values in the frame's order, as DataFrame.nlargest keeps them; head / tail: the frame's
+    order). pandas 1.x (source of 1.5, read: _python_apply_general) gave the rows in the
+    frame's order instead when every group's result was its own rows in their order (no group
+    longer than n, nlargest finding them in order): the function looked like a transform.
+    """
+    from porter.rules.legacy import written_for_older_pandas
+
+    if not (isinstance(body, cst.Call) and isinstance(body.func, cst.Attribute)
+            and isinstance(body.func.value, cst.Name) and body.func.value.value == param
+            and body.func.attr.value in _GROUP_ROW_METHODS):
+        return None
+    if not written_for_older_pandas(ctx.python_module):
+        # pandas 3 leaves the key columns out of the groups: a TODO as before (a script of
+        # pandas 1.x, which calls APIs pandas 2 or 3 removed, meant them kept)
+        return None
+    method = body.func.attr.value
+    names = _GROUP_ROW_METHODS[method]
+    given: dict[str, Any] = {}
+    for i, arg in enumerate(body.args):
+        name = arg.keyword.value if arg.keyword is not None else names[i] if i < len(names) else None
+        if arg.star or name not in names:
+            raise ctx.todo(f"{method}() with arguments porter does not read")
+        try:
+            given[name] = ast.literal_eval(cst.Module([]).code_for_node(arg.value))
+        except (ValueError, SyntaxError):
+            raise ctx.todo(f"{method}() with arguments that are not written out") from None
+    n = given.get("n", 5)
+    if not isinstance(n, int) or isinstance(n, bool) or n < 1:
+        raise ctx.todo(f"{method}() of a number of rows below 1 or not a whole number")
+    if call.has("include_groups"):
+        raise ctx.todo("include_groups=: the rows without the key columns (pandas 2.2 and 3), "
+                       "which porter does not port")
+    if grouped.prepared or grouped.pandas is not None or grouped.frame.index:
+        raise ctx.todo("apply of rows on a groupby of a computed key or of a labelled table")
+    if not grouped.sort or not grouped.dropna:
+        raise ctx.todo("apply of rows with sort=False or dropna=False")
+    frame = grouped.frame
+    key_names = list(grouped.keys)
+    row, size = "_porter_row", "_porter_size"
+    if frame.columns is not None and {row, size} & set(frame.columns):
+        raise ctx.todo(f"a column named {row} or {size}")
+    code = frame.code.method("with_row_index", row).method(
+        "with_columns", emit.pl("len").method("over", *key_names).method("alias", size))
+    code = code.method("filter", _keys_present_of(key_names))
+    place = emit.pl("int_range", emit.pl("len")).method("over", *key_names)
+    if method in ("nlargest", "nsmallest"):
+        columns = given.get("columns")
+        if isinstance(columns, list) and len(columns) == 1:
+            columns = columns[0]
+        if not isinstance(columns, str):
+            raise ctx.todo(f"{method}() of several columns or of no column named")
+        if given.get("keep", "first") != "first":
+            raise ctx.todo(f'{method}(keep="last" / "all"): ties kept otherwise')
+        if columns in grouped.keys:
+            raise ctx.todo(f"{method}() of a key column (pandas 3 leaves it out of the group)")
+        dtype = frame.dtype(columns) if frame.columns is None or columns in frame.columns \
+            else None
+        if frame.columns is not None and columns not in frame.columns:
+            raise ctx.todo(f"{method}() of {columns!r}, which is not a column (pandas raises)")
+        if dtype not in (None, "int", "float", "datetime", "date"):
+            raise ctx.todo(f"{method}() of a column of type {dtype} (pandas raises)")
+        values = emit.col(columns)
+        if dtype == "float":
+            values = values.method("fill_nan", None)  # NaN sorts with the missing values
+        elif dtype is None:
+            ctx.lower("the column's type is not known (run with --data): a NaN computed "
+                      "into it sorts as the largest number here, where pandas puts it with "
+                      "the missing values", 0.95)
+        options: dict[str, object] = {"descending": True} if method == "nlargest" else {}
+        code = code.method("sort", values, **options, nulls_last=True, maintain_order=True)
+        keep = emit.binop(place, "<", n)
+    elif method == "head":
+        keep = emit.binop(place, "<", n)
+    else:
+        keep = emit.binop(emit.pl("int_range", emit.pl("len"), 0, -1).method("over", *key_names),
+                          "<=", n)
+    code = code.method("filter", keep)
+    # pandas 1.x: every group's result its own rows in their order -> the frame's order, else
+    # the groups in key order (a stable sort keeps each group's rows as the method gave them).
+    # One sort: the frame's row number where that holds (missing otherwise, which ties)
+    like_indexed = emit.binop(
+        emit.binop(emit.col(size), "<=", n).method("all"), "&",
+        emit.binop(emit.col(row).method("diff").method("over", *key_names).method("fill_null", 1),
+                   ">", 0).method("all"))
+    code = code.method("sort", [emit.when(like_indexed, emit.col(row)), *key_names],
+                       maintain_order=True).method("drop", row, size)
+    ctx.lower("the key columns stay in the rows, as pandas 1.x and 2.x passed them to the "
+              "function (pandas 3 leaves them out); the rows grouped in key order, or in the "
+              "frame's order where every group's result is its own rows in order, as pandas "
+              "1.x gave them (pandas 2 groups them always)", 0.8)
+    return derive(frame, code, same_rows=False)
+
+
+def _keys_present_of(keys: list[str]) -> Code:
+    """Rows whose every key is present: the rows pandas (dropna=True) puts in a group."""
+    present = emit.col(keys[0]).method("is_not_null")
+    for key in keys[1:]:
+        present = emit.binop(present, "&", emit.col(key).method("is_not_null"))
+    return present
 
 
 def _recast(code: Code, target: str) -> Code:

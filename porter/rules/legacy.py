@@ -13,6 +13,9 @@ accepts never changes meaning.
 
 from __future__ import annotations
 
+import ast
+
+import libcst as cst
 import re
 
 # an offset's old base name -> pandas 3's (date_range, resample, Grouper, dt.floor / ceil / round)
@@ -568,6 +571,83 @@ _RENAMED_METHODS = {"iteritems": "items", "applymap": "map", "valid": "dropna", 
                     "backfill": "bfill"}
 
 
+_FILL_METHODS = {"ffill": "ffill", "pad": "ffill", "bfill": "bfill", "backfill": "bfill"}
+
+
+APPEND_FUNCTION = "pandas_append"
+APPEND_DEFINITION = """\
+def pandas_append(appended_to, other, ignore_index=False, verify_integrity=False, sort=False):
+    \"\"\"appended_to.append(other) as pandas 1.5 ran it (DataFrame.append and Series.append,
+    which pandas 2 removed): pd.concat, where a dict or a Series given to a frame is one row
+    first (Series(other).to_frame().T.infer_objects()) and a list of dicts a frame; the append
+    of anything else (an Index, a list) is its own.\"\"\"
+    pandas = __import__("pandas")  # (no import statement: a second conversion leaves it be)
+
+    if not isinstance(appended_to, (pandas.DataFrame, pandas.Series)):
+        return appended_to.append(other)  # an Index's own append, a list's
+    if isinstance(appended_to, pandas.Series):
+        if isinstance(other, (list, tuple)):
+            return pandas.concat([appended_to, *other], ignore_index=ignore_index,
+                                 verify_integrity=verify_integrity)
+        return pandas.concat([appended_to, other], ignore_index=ignore_index,
+                             verify_integrity=verify_integrity)
+    if isinstance(other, (pandas.Series, dict)):
+        if isinstance(other, dict):
+            if not ignore_index:
+                raise TypeError("Can only append a dict if ignore_index=True")
+            other = pandas.Series(other)
+        if other.name is None and not ignore_index:
+            raise TypeError("Can only append a Series if ignore_index=True or if the Series "
+                            "has a name")
+        names = pandas.Index([other.name], name=appended_to.index.name).names
+        other = other.to_frame().T.infer_objects().rename_axis(names)
+    elif isinstance(other, list) and other and not isinstance(other[0], pandas.DataFrame):
+        other = pandas.DataFrame(other)
+        if appended_to.index.name is not None and not ignore_index:
+            other.index.name = appended_to.index.name
+    to_concat = [appended_to, *other] if isinstance(other, (list, tuple)) else [appended_to, other]
+    return pandas.concat(to_concat, ignore_index=ignore_index, verify_integrity=verify_integrity,
+                         sort=sort)
+"""
+
+
+def modern_call(receiver: str, name: str, args: list[tuple[str | None, str]]) -> str | None:
+    """`receiver.name(args)` of a pandas object kept on pandas, as it runs under pandas 3.1
+    (the whole call), given the receiver's code and the arguments as (keyword or None, text);
+    None when there is nothing to rewrite or no one way to.
+
+    append(other, ignore_index, verify_integrity, sort) (removed in pandas 2.0) is
+    pandas_append(receiver, ...), which does what pandas 1.5's DataFrame.append and
+    Series.append did (APPEND_DEFINITION). fillna(method="ffill" / "bfill" / "pad" /
+    "backfill") is ffill() / bfill() with its limit, axis and inplace."""
+    if receiver.rsplit(".", 1)[-1] in ("str", "dt", "cat", "sparse", "plot", "list",
+                                       "struct"):
+        return None  # an accessor's method (s.str.pad) is no frame's or Series'
+    positional = [text for keyword, text in args if keyword is None]
+    keywords = {keyword: text for keyword, text in args if keyword is not None}
+    if name == "append":
+        if len(positional) + len(keywords) > 4 or not set(keywords) <= {
+                "other", "ignore_index", "verify_integrity", "sort"} or not args:
+            return None
+        written = [text if keyword is None else f"{keyword}={text}" for keyword, text in args]
+        return f"{APPEND_FUNCTION}({receiver}, {', '.join(written)})"
+    if name == "fillna" and "method" in keywords and not positional \
+            and "value" not in keywords and set(keywords) <= {"method", "limit", "axis", "inplace"}:
+        try:
+            method = _FILL_METHODS[ast.literal_eval(keywords["method"])]
+        except (ValueError, SyntaxError, KeyError, TypeError):
+            return None
+        rest = ", ".join(f"{k}={v}" for k, v in keywords.items() if k != "method")
+        return f"{receiver}.{method}({rest})"
+    if name == "lookup" and len(positional) == 2 and not keywords:
+        # DataFrame.lookup (removed in 2.0) in the source of 1.5 (read): each (row, column)
+        # label pair's value, converted from objects as maybe_convert_objects does
+        return (f"(lambda frame, rows, cols: pd.Series([frame.at[r, c] for r, c in zip(rows, cols)], "
+                f"dtype=object).infer_objects().to_numpy())({receiver}, {positional[0]}, {positional[1]})")
+    modern = modern_method(name, args)
+    return None if modern is None else f"{receiver}{modern}"
+
+
 def modern_method(name: str, args: list[tuple[str | None, str]]) -> str | None:
     """`.name(args)` of a pandas frame or Series as pandas 3.1 writes it (the text after the
     receiver), given the arguments as (keyword or None, text); None when there is nothing to
@@ -683,3 +763,102 @@ def without_infer_datetime_format(call: PandasCall, ctx: RuleContext) -> PandasC
                   "or NaT with errors=\"coerce\"", 0.9)
     kwargs = {k: v for k, v in call.kwargs.items() if k != "infer_datetime_format"}
     return PandasCall(call.receiver, call.name, call.args, kwargs, call.node)
+
+
+@rule("groupby.append_rows")
+def group_append_rows(call: PandasCall, ctx: RuleContext) -> Value:
+    """a loop appending one dict row per group -> df.group_by(k).agg(values) sorted by the keys.
+
+    acc = pd.DataFrame(); for key, rows in df.groupby(k): acc = acc.append({"c": value, ...},
+    ignore_index=True): the columns in the dict's order. The loop (Engine.group_appends hands it here, with acc made empty just before) appended
+    one row per group, the groups in sorted key order, rows of a missing key left out; each
+    value is the key or a reduction of the group's rows (as in groupby.apply with
+    pd.Series({...})). DataFrame.append (pandas 1.5, read) made each dict a row through
+    Series(dict): with a text value (a text key) each column keeps its own type; with numbers
+    only, one float makes every column float (Series of ints and floats), as the result here
+    does (at run time where the types are not known).
+    Caveats: on an empty frame the loop never ran and pandas' frame has no columns, where this
+    one has the dict's (0.95); a key given as a list of one (groupby(["k"])) is the key itself
+    as pandas 1.x gave it (pandas 2 and 3 give a tuple).
+    """
+    from porter.rules.groupby import _BodyReader, aggregate
+
+    grouped = call.receiver
+    assert isinstance(grouped, Grouped)
+    keys, rows, items = call.args[0].const  # type: ignore[attr-defined]
+    if grouped.selection is not None or grouped.prepared or grouped.pandas is not None \
+            or grouped.frame.index or not grouped.sort or not grouped.dropna:
+        raise Unsupported("a loop over a groupby of selected columns, a computed key, a "
+                          "labelled table, sort=False or dropna=False")
+    if len(keys) != len(grouped.keys) or any(not isinstance(k, str) for k in grouped.keys):
+        raise Unsupported("a loop whose key names do not match the groupby's keys")
+    frame = grouped.frame
+    reader = _BodyReader(rows, grouped, ctx)
+    exprs, names, kinds = [], [], []
+    selected: list[Code] = []
+    for name, node in items:
+        if isinstance(node, cst.Name) and node.value in keys:
+            column = grouped.keys[keys.index(node.value)]
+            selected.append(emit.col(column).method("alias", name) if column != name
+                            else emit.col(column))
+            kinds.append(frame.dtype(column))
+            continue
+        value = reader.agg(node)
+        if value.is_test:
+            raise Unsupported("a value that is True/False (pandas keeps it in an object column)")
+        if name in grouped.keys:
+            raise Unsupported(f"a value named like the key column {name!r}")
+        exprs.append(value.code.method("alias", name))
+        names.append(name)
+        kinds.append(None if value.kinds is None else
+                     "int" if value.kinds == frozenset({"int"}) else
+                     "float" if value.kinds == frozenset({"float"}) else "mixed")
+        selected.append(emit.col(name))
+    table = aggregate(grouped, exprs, names, ctx)
+    if not isinstance(table, Frame):
+        raise Unsupported("the values make no frame")
+    code = table.code.method("select", *selected)
+    numbers = {"int", "float"}
+    if any(k is not None and k not in numbers for k in kinds):
+        pass  # a text value in every row: each column keeps its own type
+    elif all(k in numbers for k in kinds):
+        if "float" in kinds:
+            code = code.method("cast", emit.atom("pl.Float64"))
+    else:
+        # numbers only, the types not all known: one float column makes every column float
+        code = code.method("pipe", emit.atom(
+            "lambda t: t.cast(pl.Float64) if all(d.is_numeric() for d in "
+            "t.collect_schema().dtypes()) and any(d.is_float() for d in "
+            "t.collect_schema().dtypes()) else t"))
+    ctx.lower("on an empty frame the loop never runs: pandas' frame has no columns, this one "
+              "has the dict's", 0.95)
+    return Frame(code, columns=tuple(name for name, _ in items), labels_intact=True,
+                 binding=None)
+
+
+# methods pandas 2 or 3 removed whose names nothing else in pandas has: a script calling one
+# was written for an older pandas (append and pad are left out: lists and strings have them)
+_REMOVED_NAMES = frozenset({"iteritems", "applymap", "as_matrix", "get_value", "set_value",
+                            "lookup", "ix", "valid", "rolling_mean", "rolling_sum",
+                            "expanding_mean", "ewma", "backfill"})
+
+
+def written_for_older_pandas(module: object) -> bool:
+    """Whether the script (Python's ast.Module) uses an API pandas 2 or 3 removed: .iteritems(),
+    .applymap(), .ix[...], .lookup(), fillna(method=...), pd.np, ... It was written for pandas
+    1.x, whose meaning of a call that pandas 3 changed (groupby.apply passing the key columns)
+    is the one it relied on."""
+    import ast as python_ast
+
+    if not isinstance(module, python_ast.Module):
+        return False
+    for node in python_ast.walk(module):
+        if isinstance(node, python_ast.Attribute) and (
+                node.attr in _REMOVED_NAMES
+                or node.attr == "np" and isinstance(node.value, python_ast.Name)
+                and node.value.id in ("pd", "pandas")):
+            return True
+        if isinstance(node, python_ast.Call) and isinstance(node.func, python_ast.Attribute) \
+                and node.func.attr == "fillna" and any(k.arg == "method" for k in node.keywords):
+            return True
+    return False

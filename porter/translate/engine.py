@@ -306,7 +306,12 @@ class _Walker:
     def block(self, body: Any, env: dict[str, Value], unit: str, indent: str) -> tuple[list[Any], dict[str, Value]]:
         out: list[Any] = []
         body = list(body)
+        skipped: int | None = None
         for i, stmt in enumerate(body):
+            if i == skipped:
+                continue  # the loop that fills the frame the statement before it made
+            if i + 1 < len(body) and self.group_appends(stmt, body[i + 1], env):
+                skipped = i + 1
             if not isinstance(stmt, cst.SimpleStatementLine):
                 self.sink_run = None
             self.has_next = i < len(body) - 1
@@ -972,6 +977,38 @@ class _Walker:
                          why + (": each is handed to pandas and stays there" if stays
                                 else ": each is handed to pandas first"), start, end)
         return lines, [site]
+
+    def group_appends(self, first: Any, loop: Any, env: dict[str, Value]) -> bool:
+        """`acc = pd.DataFrame()` followed by `for key, rows in df.groupby(k): acc =
+        acc.append({...}, ignore_index=True)` (groupby.append_rows): the frame the loop fills,
+        given to the first statement as the value of its `pd.DataFrame()` (the loop is then
+        left out). False for any other pair of statements."""
+        found = _group_row_appends(first, loop)
+        if found is None:
+            return False
+        made, acc, keys, rows, items = found
+        self.services.values_given.pop(id(made), None)  # what an earlier pass found
+        uses, reads = self.services.name_uses, _name_counts(loop.body)
+        if any(uses.get(name, 0) != reads.get(name, 0) + 1 for name in (*keys, rows)) \
+                or reads.get(acc, 0) != 2 or any(name in env for name in (*keys, rows)):
+            return False  # a loop name read after the loop, or acc read in the values
+        if any(isinstance(env.get(name), PandasValue)
+               for name in _names_read(self.services.code_for(loop.iter))):
+            return False  # the frame is on pandas here: the loop stays pandas code
+        evaluator = Evaluator(env, self.services)
+        maker = evaluator.eval(made.func)
+        if not (isinstance(maker, Module) and maker.qualname == "pandas.DataFrame"):
+            return False
+        grouped = evaluator.eval(loop.iter)
+        if not isinstance(grouped, Grouped):
+            return False
+        call = PandasCall(grouped, "append_rows", (Opaque(Code(""), const=(keys, rows, items)),),
+                          node=loop.iter)
+        result = evaluator.dispatch("groupby.append_rows", call, loop.iter)
+        if not isinstance(result, Frame) or any(site.status == "todo" for site in result.sites):
+            return False
+        self.services.values_given[id(made)] = (made, result)
+        return True
 
     def iterrows_appends(self, stmt: cst.For, env: dict[str, Value], indent: str) -> list[Any] | None:
         """`for _, row in df.iterrows():` whose body only appends one value per row to lists
@@ -2853,6 +2890,61 @@ def _free_uses(node: cst.CSTNode, name: str) -> int:
 
     node.visit(Count())
     return count
+
+
+def _group_row_appends(first: Any, loop: Any) -> tuple[cst.Call, str, tuple[str, ...], str, tuple[tuple[str, cst.BaseExpression], ...]] | None:
+    """(the `pd.DataFrame()` call, acc, the key names, the rows name, [(column, value)]) of
+    `acc = pd.DataFrame()` then `for key, rows in df.groupby(...): acc = acc.append({"c":
+    value, ...}, ignore_index=True)` (key a name, or a tuple of names for several keys); None
+    otherwise."""
+    if not (isinstance(first, cst.SimpleStatementLine) and len(first.body) == 1
+            and isinstance(first.body[0], cst.Assign) and len(first.body[0].targets) == 1
+            and isinstance(first.body[0].targets[0].target, cst.Name)):
+        return None
+    made = first.body[0].value
+    acc = first.body[0].targets[0].target.value
+    if not (isinstance(made, cst.Call) and not made.args):
+        return None
+    if not (isinstance(loop, cst.For) and loop.orelse is None and loop.asynchronous is None
+            and isinstance(loop.iter, cst.Call) and isinstance(loop.iter.func, cst.Attribute)
+            and loop.iter.func.attr.value == "groupby" and isinstance(loop.target, cst.Tuple)
+            and len(loop.target.elements) == 2 and isinstance(loop.body, cst.IndentedBlock)
+            and len(loop.body.body) == 1):
+        return None
+    key, rows = (e.value for e in loop.target.elements)
+    if isinstance(key, cst.Tuple) and all(isinstance(e.value, cst.Name) for e in key.elements):
+        keys = tuple(e.value.value for e in key.elements)  # type: ignore[attr-defined]
+    elif isinstance(key, cst.Name):
+        keys = (key.value,)
+    else:
+        return None
+    if not isinstance(rows, cst.Name) or len({*keys, rows.value, acc}) != len(keys) + 2:
+        return None
+    line = loop.body.body[0]
+    if not (isinstance(line, cst.SimpleStatementLine) and len(line.body) == 1
+            and isinstance(line.body[0], cst.Assign) and len(line.body[0].targets) == 1
+            and isinstance(line.body[0].targets[0].target, cst.Name)
+            and line.body[0].targets[0].target.value == acc):
+        return None
+    call = line.body[0].value
+    if not (isinstance(call, cst.Call) and isinstance(call.func, cst.Attribute)
+            and call.func.attr.value == "append" and isinstance(call.func.value, cst.Name)
+            and call.func.value.value == acc and len(call.args) == 2
+            and call.args[0].keyword is None and isinstance(call.args[0].value, cst.Dict)
+            and call.args[1].keyword is not None and call.args[1].keyword.value == "ignore_index"
+            and isinstance(call.args[1].value, cst.Name) and call.args[1].value.value == "True"):
+        return None
+    items = []
+    for element in call.args[0].value.elements:
+        if not (isinstance(element, cst.DictElement) and isinstance(element.key, cst.SimpleString)):
+            return None
+        name = element.key.evaluated_value
+        if not isinstance(name, str):
+            return None
+        items.append((name, element.value))
+    if not items or len({name for name, _ in items}) != len(items):
+        return None
+    return made, acc, keys, rows.value, tuple(items)
 
 
 def _row_appends(stmt: cst.For) -> tuple[str, str, list[tuple[str, cst.BaseExpression]]] | None:

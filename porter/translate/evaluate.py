@@ -178,6 +178,9 @@ class Services:
     # appended to each
     frame_lists: frozenset[str] = frozenset()
     frame_lists_refused: set[str] = field(default_factory=set)
+    # values computed for an expression from the statements after it, by the node's id (the
+    # node kept to check it): `acc = pd.DataFrame()` filled by the loop that follows it
+    values_given: dict[int, tuple[cst.CSTNode, "Value"]] = field(default_factory=dict)
     frame_list_members: dict[str, list[Frame]] = field(default_factory=dict)
 
 
@@ -197,6 +200,10 @@ class Evaluator:
         known = self._memo.get(id(node))
         if known is not None and known[0] is node:
             return known[1]
+        given = self.services.values_given.get(id(node))
+        if given is not None and given[0] is node:
+            # what the statements around this one compute (Engine.group_appends)
+            return given[1]
         method = getattr(self, f"_eval_{type(node).__name__}", None)
         value = method(node) if method is not None else self.generic(node)
         self._memo[id(node)] = (node, value)
@@ -1345,12 +1352,32 @@ class Evaluator:
         return PandasValue(code, sites=value.sites + (site,))
 
     # -- everything else ------------------------------------------------------------------------
+    def modern_chain(self, node: cst.BaseExpression) -> str | None:
+        """A chain of calls on a pandas object kept as written, with the calls along it as
+        pandas 3.1 runs them (handover.modern_chain: old frequency aliases, removed methods);
+        None when it starts from no pandas object or nothing changes."""
+        if not isinstance(node, (cst.Call, cst.Attribute, cst.Subscript)):
+            return None
+        base = _chain_base(node)
+        if base is node or not isinstance(self.eval(base), PandasValue):
+            return None
+        from porter.rules.legacy import written_for_older_pandas
+        modern = handover.modern_chain(
+            node, older=written_for_older_pandas(self.services.python_module))
+        if modern is node:
+            return None
+        text = self.source(modern)
+        return text if text != self.source(node) else None
+
     def generic(self, node: cst.BaseExpression, display: bool = False) -> Value:
         """Keep `node` as written, rewriting pandas values found inside it."""
         rewriter = ChildRewriter(self, node, display)
         new_node = node.visit(rewriter)
         if not rewriter.changed:
             if rewriter.pandas_inside:
+                modern = self.modern_chain(node)
+                if modern is not None:
+                    return PandasValue(Code(modern, precedence(node)), sites=tuple(rewriter.sites))
                 return PandasValue(Code(self.standalone(node), precedence(node)),
                                    sites=tuple(rewriter.sites))
             return Opaque(Code(self.standalone(node), precedence(node)), node=node,
@@ -1371,6 +1398,17 @@ def _values_array(value: Value, library_name: str, reads_labels: bool, whole: Co
         and not reads_labels and whole is None and value.dtype in ("int", "float") \
         and not value.nullable_int and not value.null_is_false and not value.frame.index \
         and not value.index_values and getattr(value, "pandas", None) is None
+
+
+def _chain_base(node: cst.BaseExpression) -> cst.BaseExpression:
+    """The object a chain of calls, attributes and subscripts starts from."""
+    while True:
+        if isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute):
+            node = node.func.value
+        elif isinstance(node, (cst.Attribute, cst.Subscript)):
+            node = node.value
+        else:
+            return node
 
 
 def _model_array(node: cst.BaseExpression) -> bool:

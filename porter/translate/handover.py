@@ -408,6 +408,15 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
                 arg.with_changes(value=cst.SimpleString(f'"{renamed[i]}"')) if i in renamed else arg
                 for i, arg in enumerate(node.args)])  # type: ignore[attr-defined]
             return Code(cst.Module([]).code_for_node(new))
+        if isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute) \
+                and call.receiver is not None:
+            # a method pandas 3 removed (rules/legacy.py): written as pandas 3.1 spells it, as
+            # the kept call runs on pandas 3.1
+            modern = _modern_method(call, node, [
+                f"{arg.keyword.value}={source(arg.value)}" if arg.keyword else source(arg.value)
+                for arg in node.args], source(node.func.value))
+            if modern is not None:
+                return Code(modern)
         return Code(source(node))  # nothing to hand over: the call stays exactly as written
     if isinstance(node, cst.Call):
         args = []
@@ -421,9 +430,9 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
         func = node.func
         if call.receiver is not None and isinstance(func, cst.Attribute):
             receiver = to_pandas(call.receiver).wrapped(emit.ATOM)
-            modern = _modern_method(call, node, args)
+            modern = _modern_method(call, node, args, receiver)
             if modern is not None:  # a method pandas 3 removed (rules/legacy.py)
-                return Code(f"{receiver}{modern}")
+                return Code(modern)
             return Code(f"{receiver}.{func.attr.value}({', '.join(args)})")
         return Code(f"{source(func)}({', '.join(args)})")
     if isinstance(node, cst.Attribute) and call.receiver is not None:
@@ -471,10 +480,12 @@ _FREQUENCY_ARGS = {
 }
 
 
-def _modern_method(call: PandasCall, node: cst.Call, args: list[str]) -> str | None:
+def _modern_method(call: PandasCall, node: cst.Call, args: list[str],
+                   receiver: str) -> str | None:
     """A method pandas 3 removed, called on a frame or Series kept on pandas, as pandas 3.1
-    writes it (rules/legacy.py): iteritems() is items(), get_value(i, c) is .at[i, c]."""
-    from porter.rules.legacy import modern_method
+    writes it (rules/legacy.py), the whole call: iteritems() is items(), get_value(i, c) is
+    .at[i, c], append(other) is pd.concat([df, other]), fillna(method="ffill") is ffill()."""
+    from porter.rules.legacy import modern_call
     func = node.func
     if not isinstance(func, cst.Attribute) or not isinstance(call.receiver, (Frame, Column,
                                                                              PandasValue)):
@@ -484,7 +495,50 @@ def _modern_method(call: PandasCall, node: cst.Call, args: list[str]) -> str | N
     given = [(arg.keyword.value if arg.keyword else None,
               text.split("=", 1)[1] if arg.keyword else text)
              for arg, text in zip(node.args, args)]
-    return modern_method(func.attr.value, given)
+    return modern_call(receiver, func.attr.value, given)
+
+
+def modern_chain(node: cst.BaseExpression, older: bool = False) -> cst.BaseExpression:
+    """A chain of calls on a pandas object kept as written (`df.set_index("t").resample("M")
+    [["a"]].sum()`), each call along it (not inside its arguments) written as it runs under
+    pandas 3.1: old frequency aliases renamed, removed methods in today's spelling
+    (rules/legacy.py). `older`: the script was written for pandas 1.x, whose
+    `df.groupby(k).apply(f)` passed f the key columns too: `df.groupby(k)[list(df.columns)]
+    .apply(f)` passes them under pandas 3.1 (df a name: it is read twice)."""
+    from porter.rules.legacy import modern_call
+
+    if isinstance(node, cst.Subscript):
+        return node.with_changes(value=modern_chain(node.value, older))
+    if isinstance(node, cst.Attribute):
+        return node.with_changes(value=modern_chain(node.value, older))
+    if not (isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute)):
+        return node
+    func = node.func.with_changes(value=modern_chain(node.func.value, older))
+    grouping = func.value
+    if older and func.attr.value == "apply" \
+            and not any(arg.keyword and arg.keyword.value == "include_groups" for arg in node.args) \
+            and isinstance(grouping, cst.Call) and isinstance(grouping.func, cst.Attribute) \
+            and grouping.func.attr.value == "groupby" and isinstance(grouping.func.value, cst.Name) \
+            and grouping.args and all(arg.keyword is None or arg.keyword.value in (
+                "by", "sort", "dropna", "group_keys", "observed") for arg in grouping.args):
+        frame = grouping.func.value.value
+        func = func.with_changes(value=cst.parse_expression(
+            f"{cst.Module([]).code_for_node(grouping)}[list({frame}.columns)]"))
+    node = node.with_changes(func=func)
+    renamed = modern_frequencies(node)
+    if renamed:
+        node = node.with_changes(args=[
+            arg.with_changes(value=cst.SimpleString(f'"{renamed[i]}"')) if i in renamed else arg
+            for i, arg in enumerate(node.args)])
+    if any(arg.star for arg in node.args):
+        return node
+    code = cst.Module([]).code_for_node
+    text = modern_call(code(func.value), func.attr.value,
+                       [(arg.keyword.value if arg.keyword else None, code(arg.value))
+                        for arg in node.args])
+    if text is None:
+        return node
+    return cst.parse_expression(text).with_changes(lpar=node.lpar, rpar=node.rpar)
 
 
 def modern_frequencies(node: cst.CSTNode) -> dict[int, str]:

@@ -14,6 +14,7 @@ from porter.rules.datetimes import (
 from porter.rules.handover import TEXT_DEFINITION, TEXT_FUNCTION
 from porter.translate.handover import VALUES_DEFINITION, VALUES_FUNCTION
 from porter.rules.elementwise import DISTINCT_DEFINITION, DISTINCT_FUNCTION
+from porter.rules.legacy import APPEND_DEFINITION, APPEND_FUNCTION
 from porter.rules.strings import (
     TITLE_DEFINITION, TITLE_FUNCTION, UPPER_DEFINITION, UPPER_FUNCTION, WHITESPACE_CONSTANT,
     WHITESPACE_DEFINITION,
@@ -177,7 +178,8 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (LEVEL_ROWS_FUNCTION, LEVEL_ROWS_DEFINITION),
                                  (ROW_SUM_FUNCTION, ROW_SUM_DEFINITION),
                                  (DISTINCT_FUNCTION, DISTINCT_DEFINITION),
-                                 (VALUES_FUNCTION, VALUES_DEFINITION)):
+                                 (VALUES_FUNCTION, VALUES_DEFINITION),
+                                 (APPEND_FUNCTION, APPEND_DEFINITION)):
         if function not in used or _defines(module, function):
             continue
         body = _insert_after_imports(body, _function(definition))

@@ -8,7 +8,7 @@ from typing import TYPE_CHECKING, Any
 import libcst as cst
 
 from porter.emit import code as emit
-from porter.emit.code import ATOM
+from porter.emit.code import ATOM, Code
 from porter.emit.fstrings import as_format_call, fit_in_fstring, forbidden_in
 from porter.model import SiteDraft
 from porter.translate import handover
@@ -42,6 +42,7 @@ class ChildRewriter(cst.CSTTransformer):
         self.format_calls: dict[int, tuple[cst.CSTNode, cst.Call]] = {}
         self.attributes: set[int] = set()  # attributes whose receiver alone is rewritten
         self.targets: set[int] = set()  # loop targets of the comprehension being rewritten
+        self.pandas_methods: set[int] = set()  # `obj.method` of pandas objects kept as written
 
     def on_visit(self, node: cst.CSTNode) -> bool:
         if isinstance(node, cst.FormattedString):
@@ -106,6 +107,14 @@ class ChildRewriter(cst.CSTTransformer):
                      else evaluator.handed_to_unknown(value, node))
         original = evaluator.source(node)
         replacement = None
+        if isinstance(value, PandasValue) and not display and value.code.text == original \
+                and isinstance(node, (cst.Call, cst.Subscript, cst.Attribute)):
+            # pandas code kept as written: the calls along it as pandas 3.1 runs them
+            modern = handover.modern_chain(node)
+            if modern is not node and evaluator.source(modern) != original:
+                value = PandasValue(Code(evaluator.source(modern), precedence(node)),
+                                    sites=value.sites, rows=value.rows, frame=value.frame,
+                                    label_rows=value.label_rows)
         if value.code.text != original:
             try:
                 replacement = cst.parse_expression(value.code.text)
@@ -123,6 +132,8 @@ class ChildRewriter(cst.CSTTransformer):
                     replacement = replacement.with_changes(lpar=[], rpar=[])
         if isinstance(value, PandasValue) and not display:
             self.pandas_inside = True
+            if isinstance(node, cst.Attribute):
+                self.pandas_methods.add(id(node))
         self.sites += value.sites
         if replacement is not None:
             if (value.code.prec < precedence(node) or self.evaluator.services.glued(node)) \
@@ -162,6 +173,20 @@ class ChildRewriter(cst.CSTTransformer):
                 and id(original.for_in.iter) in self.replacements:
             for_in = updated.for_in.with_changes(iter=self.replacements[id(original.for_in.iter)])
             return updated.with_changes(for_in=for_in)
+        if isinstance(original, cst.Call) and id(original.func) in self.pandas_methods:
+            renamed = handover.modern_frequencies(original)
+            if renamed:
+                # a method of a pandas object given a frequency alias pandas 3 rejects
+                self.changed = True
+                updated = updated.with_changes(args=[  # type: ignore[attr-defined]
+                    a.with_changes(value=cst.SimpleString(f'"{renamed[i]}"')) if i in renamed else a
+                    for i, a in enumerate(updated.args)])  # type: ignore[attr-defined]
+            modern = self._modern_call(original, updated)  # type: ignore[arg-type]
+            if modern is not None:
+                self.changed = True
+                return modern
+            if renamed:
+                return updated
         if isinstance(original, cst.Call) and self._on_pandas(original):
             renamed = handover.modern_frequencies(original)
             if renamed:
@@ -178,6 +203,24 @@ class ChildRewriter(cst.CSTTransformer):
             return replacement
         return updated
 
+
+    def _modern_call(self, original: cst.Call, updated: cst.Call) -> cst.BaseExpression | None:
+        """A method pandas 3 removed, called on a pandas object kept as written (rules/legacy.py:
+        `df.append(row, ignore_index=True)`, `s.fillna(method="ffill")`, `df.iteritems()`), as
+        pandas 3.1 spells it: the kept code runs on pandas 3.1."""
+        from porter.rules.legacy import modern_call
+
+        func = updated.func
+        if not isinstance(func, cst.Attribute) or any(arg.star for arg in updated.args):
+            return None
+        source = self.evaluator.source
+        given = [(arg.keyword.value if arg.keyword else None, source(arg.value))
+                 for arg in updated.args]
+        text = modern_call(source(func.value), func.attr.value, given)
+        if text is None:
+            return None
+        new = cst.parse_expression(text)
+        return new.with_changes(lpar=original.lpar, rpar=original.rpar) if original.lpar else new
 
     def _on_pandas(self, call: cst.Call) -> bool:
         """Whether a method call's receiver is (built on) a pandas value this rewrite handed over."""

@@ -155,14 +155,15 @@ def _script_place(original: Path, data: Path) -> str:
 
 
 # loops over a frame's rows, and over its columns (items, iteritems in older pandas), which
-# the converted script computes as columns or as a loop over the column names
-ROW_LOOPS = {"iterrows", "itertuples", "items", "iteritems"}
+# the converted script computes as columns or as a loop over the column names, and over a
+# groupby's groups, which it computes as one group_by (a row appended per group)
+ROW_LOOPS = {"iterrows", "itertuples", "items", "iteritems", "groupby"}
 
 
 def _row_loop_names(text: str) -> frozenset[str]:
-    """The names a `for` over a frame's rows or columns binds in the script (`for _, row in
-    df.iterrows()`, `for name, values in df.items()`): the row or column left behind by the
-    last turn is not a result."""
+    """The names a `for` over a frame's rows, columns or groups binds in the script (`for _,
+    row in df.iterrows()`, `for name, values in df.items()`, `for key, rows in
+    df.groupby(k)`): the row, column or group left behind by the last turn is not a result."""
     try:
         tree = ast.parse(text)
     except SyntaxError:
@@ -199,8 +200,9 @@ def _judge(before: SideOutputs, after: SideOutputs, options: VerifyOptions,
                          "not compared")
             continue
         if name not in after.variables and name in row_names:
-            notes.append(f"{name}: the last row (or column) of a loop over rows (or columns), "
-                         "which the converted script computes as columns; not compared")
+            notes.append(f"{name}: the last row (column, group) of a loop over rows (columns, "
+                         "groups), which the converted script computes as columns; not "
+                         "compared")
             continue
         if name not in before.variables:
             notes.append(f"{name}: only the converted script has it (a name porter wrote); "
