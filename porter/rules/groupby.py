@@ -556,8 +556,16 @@ def groupby(call: PandasCall, ctx: RuleContext) -> Value:
     if any(frame.dtype(k) == "category" for k in keys):
         ctx.lower("category keys sort by their categories in pandas; porter sorts by text, which "
                   "is the same for categories made by astype('category')", 0.9)
+    sort = call.const("sort", None, None)
+    if sort is None and frame.dask:
+        # Dask's groupby (sort=None) leaves the groups unsorted: with one output partition
+        # (split_out=1, its default) each partition's groups in the order met, combined in
+        # partition order, which is the order the keys first appear in over the files
+        ctx.lower("Dask's groupby does not sort its groups: they come in the order the keys "
+                  "first appear (one output partition, split_out=1, Dask's default), as "
+                  "group_by(maintain_order=True) keeps them; Dask does not promise that order", 0.9)
     return Grouped(frame.code, frame=frame, keys=tuple(keys),
-                   sort=bool(call.const("sort", None, True)),
+                   sort=bool(sort if sort is not None else not frame.dask),
                    dropna=bool(call.const("dropna", None, True)),
                    as_index=bool(call.const("as_index", None, True)),
                    group_keys=bool(call.const("group_keys", None, True, kinds=(bool,))),
@@ -638,8 +646,16 @@ def series_groupby(call: PandasCall, ctx: RuleContext) -> Value:
                        + (((name, column.dtype),) if column.dtype else ()))
         if name == "_porter_values":
             raise Unsupported("a computed Series whose name porter cannot keep")
+    sort = call.const("sort", None, None)
+    if sort is None and frame.dask:
+        # Dask's groupby (sort=None) leaves the groups unsorted: with one output partition
+        # (split_out=1, its default) each partition's groups in the order met, combined in
+        # partition order, which is the order the keys first appear in over the files
+        ctx.lower("Dask's groupby does not sort its groups: they come in the order the keys "
+                  "first appear (one output partition, split_out=1, Dask's default), as "
+                  "group_by(maintain_order=True) keeps them; Dask does not promise that order", 0.9)
     return Grouped(frame.code, frame=frame, keys=tuple(keys),
-                   sort=bool(call.const("sort", None, True)),
+                   sort=bool(sort if sort is not None else not frame.dask),
                    dropna=bool(call.const("dropna", None, True)),
                    group_keys=bool(call.const("group_keys", None, True, kinds=(bool,))),
                    selection=(name,), single=True,

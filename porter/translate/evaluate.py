@@ -437,6 +437,11 @@ class Evaluator:
                 replace(s, status="converted") if s.key == "frame.loc" and s.status == "handover"
                 else s for s in receiver.sites))
             return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
+        dask_key = _dask_key(receiver, name)
+        if dask_key is not None:
+            if name in ("npartitions",):
+                return self.dispatch(dask_key, PandasCall(receiver, name, node=node), node)
+            return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
         if isinstance(receiver, Frame):
             if name in ("loc", "iloc", "at") or name == "ix" and name not in (receiver.columns or ()):
                 # (.ix: label-or-position indexing pandas 1.0 removed, rules/legacy.py)
@@ -735,7 +740,7 @@ class Evaluator:
             return self.todo_unhandled(func, node, "`*args`/`**kwargs` unpacking is not handled")
         positional, keywords = args
         if isinstance(func, BoundMethod):
-            key = f"{_prefix(func.receiver)}.{func.name}"
+            key = _dask_key(func.receiver, func.name) or f"{_prefix(func.receiver)}.{func.name}"
             call = PandasCall(func.receiver, func.name, positional, keywords, node)
             if key == "frame.groupby" and _groups_by_time(call):
                 key = "frame.groupby.grouper"  # time bins among the keys (rules/resample.py)
@@ -1175,6 +1180,10 @@ class Evaluator:
             reason = (f"porter could not read this call ({type(exc).__name__}: {exc}); "
                       f"internal error: please report")
             return self.todo(key, call, node, reason, entry=entry)
+        if not key.startswith("dd.") and isinstance(result, Frame) and not result.dask \
+                and _from_dask(call):
+            # a step of a Dask frame (merge, assign, a filter...) gives a Dask frame again
+            result = replace(result, dask=True)
         if ctx.inside_from_pandas and ctx.handover and isinstance(result, PandasValue):
             return result  # porter's own hand-over, met again on a later pass: nothing new
         status = "handover" if entry.status == "handover" or ctx.handover else "converted"
@@ -1187,7 +1196,7 @@ class Evaluator:
                 reason += f" ({'; '.join(ctx.reasons)})"
             return self.todo(key, call, node, reason, entry=entry, suggestion=result.code.text)
         if isinstance(result, Frame) and (
-                key.startswith("pd.read_") and "nrows" not in call.kwargs
+                key.startswith(("pd.read_", "dd.read_")) and "nrows" not in call.kwargs
                 or ctx.stacked_rows and set(ctx.stacked_rows) <= self.services.file_rows):
             self.services.file_rows.add(result.rows)  # Polars counts them from the files alone
         line, end_line = self.services.position(node)
@@ -1716,9 +1725,40 @@ _NUMPY_SCALARS = frozenset({"numpy.timedelta64"})
 NUMPY_NAME = "np"  # numpy's name in a conversion of a script that reached it through pd.np only
 
 
+def _dask_frame(value: object) -> bool:
+    """A Dask DataFrame, or a column or the groups of one."""
+    if isinstance(value, (Column, Grouped)):
+        value = value.frame
+    return isinstance(value, Frame) and value.dask
+
+
+def _from_dask(call: PandasCall) -> bool:
+    return any(_dask_frame(v) for v in (call.receiver, *call.args, *call.kwargs.values()))
+
+
+# what only Dask's frames and series have, or where Dask's differ from pandas' (rules/dask.py)
+DASK_FRAME_METHODS = frozenset({"compute", "persist", "head", "repartition", "map_partitions",
+                                "to_csv", "to_parquet", "set_index", "npartitions",
+                                "partitions", "get_partition", "to_delayed", "visualize",
+                                "reset_index", "value_counts"})
+DASK_SERIES_METHODS = frozenset({"compute", "persist", "head", "npartitions", "repartition",
+                                 "map_partitions", "value_counts", "to_csv", "reset_index",
+                                 "unique", "drop_duplicates"})
+
+
+def _dask_key(receiver: object, name: str) -> str | None:
+    """The `dd.frame.<name>` / `dd.series.<name>` key of a method of a Dask frame or column."""
+    if isinstance(receiver, Frame) and receiver.dask and name in DASK_FRAME_METHODS:
+        return f"dd.frame.{name}"
+    if isinstance(receiver, Column) and not receiver.element and receiver.frame.dask \
+            and name in DASK_SERIES_METHODS:
+        return f"dd.series.{name}"
+    return None
+
+
 def _module_key(qualname: str) -> str:
     module, _, name = qualname.partition(".")
-    return f"{'pd' if module == 'pandas' else 'np'}.{name}"
+    return f"{ {'pandas': 'pd', 'dask': 'dd'}.get(module, 'np')}.{name}"
 
 
 def _getitem_key(receiver: Value, key: Value) -> str:
