@@ -273,14 +273,20 @@ def map_partitions(call: PandasCall, ctx: RuleContext) -> Value:
                        "on how the rows are split")
     receiver = call.receiver
     assert receiver is not None
-    applied = cst.Call(func=node, args=[cst.Arg(value=cst.Name("__porter_partition"))])
-    result = ctx.evaluate(applied, {"__porter_partition": receiver})
+    if isinstance(node, cst.Lambda):
+        params = node.params.params
+        if len(params) != 1 or node.params.star_arg not in (None, cst.MaybeSentinel.DEFAULT) \
+                or node.params.kwonly_params or node.params.posonly_params:
+            raise ctx.todo("a lambda of other than one parameter")
+        result = ctx.evaluate(node.body, {params[0].name.value: receiver})
+    else:
+        applied = cst.Call(func=node, args=[cst.Arg(value=cst.Name("__porter_partition"))])
+        result = ctx.evaluate(applied, {"__porter_partition": receiver})
     if any(site.status == "todo" for site in getattr(result, "sites", ())
            if site not in receiver.sites):
         raise ctx.todo("the function's pandas code does not port")
     if isinstance(result, Frame):
-        if result.rows != receiver.rows if isinstance(receiver, Frame) else True:
-            raise ctx.todo("the function changes the rows (a filter or a sort): per partition")
+        # (a filter keeps or drops each row by itself: per partition as on the whole frame)
         return replace(result, dask=True)
     if isinstance(result, Column) and isinstance(receiver, (Frame, Column)):
         return result

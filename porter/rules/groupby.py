@@ -557,15 +557,17 @@ def groupby(call: PandasCall, ctx: RuleContext) -> Value:
         ctx.lower("category keys sort by their categories in pandas; porter sorts by text, which "
                   "is the same for categories made by astype('category')", 0.9)
     sort = call.const("sort", None, None)
-    if sort is None and frame.dask:
-        # Dask's groupby (sort=None) leaves the groups unsorted: with one output partition
-        # (split_out=1, its default) each partition's groups in the order met, combined in
-        # partition order, which is the order the keys first appear in over the files
-        ctx.lower("Dask's groupby does not sort its groups: they come in the order the keys "
-                  "first appear (one output partition, split_out=1, Dask's default), as "
-                  "group_by(maintain_order=True) keeps them; Dask does not promise that order", 0.9)
+    if sort is not True and frame.dask:
+        # Dask's groupby (sort=None or False) does not sort: with one output partition (split_out=1)
+        # its order depends on the aggregation's path (a Series' sum sorts each partition's
+        # groups, then keeps the order they are met in over the partitions; agg({...}) keeps
+        # the order met) and on how the files split into partitions
+        ctx.lower("Dask's groupby does not sort its groups, and their order depends on its "
+                  "partitions and on the aggregation (each partition's groups sorted, then "
+                  "in the order met; agg({...}) in the order met): porter orders them as "
+                  "pandas would; give sort=True, or sort the result", 0.5)
     return Grouped(frame.code, frame=frame, keys=tuple(keys),
-                   sort=bool(sort if sort is not None else not frame.dask),
+                   sort=bool(sort if sort is not None else True),
                    dropna=bool(call.const("dropna", None, True)),
                    as_index=bool(call.const("as_index", None, True)),
                    group_keys=bool(call.const("group_keys", None, True, kinds=(bool,))),
@@ -647,15 +649,17 @@ def series_groupby(call: PandasCall, ctx: RuleContext) -> Value:
         if name == "_porter_values":
             raise Unsupported("a computed Series whose name porter cannot keep")
     sort = call.const("sort", None, None)
-    if sort is None and frame.dask:
-        # Dask's groupby (sort=None) leaves the groups unsorted: with one output partition
-        # (split_out=1, its default) each partition's groups in the order met, combined in
-        # partition order, which is the order the keys first appear in over the files
-        ctx.lower("Dask's groupby does not sort its groups: they come in the order the keys "
-                  "first appear (one output partition, split_out=1, Dask's default), as "
-                  "group_by(maintain_order=True) keeps them; Dask does not promise that order", 0.9)
+    if sort is not True and frame.dask:
+        # Dask's groupby (sort=None or False) does not sort: with one output partition (split_out=1)
+        # its order depends on the aggregation's path (a Series' sum sorts each partition's
+        # groups, then keeps the order they are met in over the partitions; agg({...}) keeps
+        # the order met) and on how the files split into partitions
+        ctx.lower("Dask's groupby does not sort its groups, and their order depends on its "
+                  "partitions and on the aggregation (each partition's groups sorted, then "
+                  "in the order met; agg({...}) in the order met): porter orders them as "
+                  "pandas would; give sort=True, or sort the result", 0.5)
     return Grouped(frame.code, frame=frame, keys=tuple(keys),
-                   sort=bool(sort if sort is not None else not frame.dask),
+                   sort=bool(sort if sort is not None else True),
                    dropna=bool(call.const("dropna", None, True)),
                    group_keys=bool(call.const("group_keys", None, True, kinds=(bool,))),
                    selection=(name,), single=True,

@@ -1952,11 +1952,15 @@ class _Walker:
             lines.append(f"{name} = {self.services.code_for(expr)}")
         env[name] = PandasValue(emit.atom(name))
         # one marker for the statement, not one per call in it: each call is pandas' own
-        site = SiteDraft("frame.labels", "handover", "todo", 0.0,
-                         f"pandas code reads the row labels of `{name}` later, which are the "
-                         "original row numbers after a filter or sort: pandas makes it; to port "
-                         "it, keep the row number as a column (with_row_index) where the frame is "
-                         "read and use that column where the labels are read",
+        message = (f"pandas code reads the row labels of `{name}` later, which are the "
+                   "original row numbers after a filter or sort: pandas makes it; to port "
+                   "it, keep the row number as a column (with_row_index) where the frame is "
+                   "read and use that column where the labels are read")
+        if isinstance(value, Frame) and value.dask:
+            message = (f"code kept on Dask reads `{name}` later (a call porter does not port, "
+                       "or Dask's row labels, which start again at 0 in each partition): the "
+                       "read stays Dask's")
+        site = SiteDraft("frame.labels", "handover", "todo", 0.0, message,
                          *self.services.statement_lines)
         sites = [replace(x, status="handover", confidence=1.0,
                          message=f"made by pandas with `{name}`, for its row labels")

@@ -1180,10 +1180,13 @@ class Evaluator:
             reason = (f"porter could not read this call ({type(exc).__name__}: {exc}); "
                       f"internal error: please report")
             return self.todo(key, call, node, reason, entry=entry)
-        if not key.startswith("dd.") and isinstance(result, Frame) and not result.dask \
-                and _from_dask(call):
-            # a step of a Dask frame (merge, assign, a filter...) gives a Dask frame again
-            result = replace(result, dask=True)
+        if key not in _DASK_COMPUTED and _from_dask(call):
+            # a step of a Dask frame (merge, assign, a filter, a groupby's sum...) gives a Dask
+            # frame or column again
+            if isinstance(result, Frame) and not result.dask:
+                result = replace(result, dask=True)
+            elif isinstance(result, Column) and not result.element and not result.frame.dask:
+                result = replace(result, frame=replace(result.frame, dask=True))
         if ctx.inside_from_pandas and ctx.handover and isinstance(result, PandasValue):
             return result  # porter's own hand-over, met again on a later pass: nothing new
         status = "handover" if entry.status == "handover" or ctx.handover else "converted"
@@ -1744,6 +1747,11 @@ DASK_FRAME_METHODS = frozenset({"compute", "persist", "head", "repartition", "ma
 DASK_SERIES_METHODS = frozenset({"compute", "persist", "head", "npartitions", "repartition",
                                  "map_partitions", "value_counts", "to_csv", "reset_index",
                                  "unique", "drop_duplicates"})
+
+
+# Dask methods whose result is pandas' (computed)
+_DASK_COMPUTED = frozenset({"dd.frame.compute", "dd.series.compute", "dd.frame.head",
+                            "dd.series.head"})
 
 
 def _dask_key(receiver: object, name: str) -> str | None:
