@@ -203,7 +203,7 @@ def reset_index(call: PandasCall, ctx: RuleContext) -> Value:
 
 @rule("dd.series.reset_index")
 def series_reset_index(call: PandasCall, ctx: RuleContext) -> Value:
-    """s.reset_index() of a Dask Series: pandas' rule where the labels are a groupby's keys."""
+    """s.reset_index() of a Dask Series -> pandas' rule, where the labels are a groupby's keys."""
     column = call.receiver
     assert isinstance(column, Column)
     if not column.frame.index:
