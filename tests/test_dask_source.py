@@ -170,6 +170,29 @@ def test_merge_with_a_lookup_read_by_dask(tmp_path):
     assert not todo_keys(result)
 
 
+def test_merge_of_two_frames_of_several_files_is_lowered(tmp_path):
+    # Dask shuffles both frames on the key: its rows come in another order than pandas'
+    folder = tmp_path / "d"
+    script = ('import dask.dataframe as dd\n'
+              't = dd.read_csv("data/tickets-*.csv")\n'
+              'both = t.merge(dd.read_csv("data/tickets-1*.csv"), on="route")\n'
+              'both.compute().to_csv("out/m.csv", index=False)\n')
+    _run(script, folder)
+    shuffled = pd.read_csv(folder / "out" / "m.csv")
+    pandas_order = pd.read_csv(folder / "data" / "tickets-1.csv")
+    whole = pd.concat([pd.read_csv(folder / "data" / f"tickets-{n}.csv") for n in (1, 10, 2)])
+    merged = whole.merge(pd.concat([pandas_order, pd.read_csv(folder / "data" / "tickets-10.csv")]),
+                         on="route")
+    assert sorted(shuffled.to_csv(index=False).splitlines()) == sorted(merged.to_csv(index=False).splitlines())
+    assert shuffled.route.tolist() != merged.route.tolist()
+    result = convert(script)
+    site = next(s for s in result.sites if s.key == "frame.merge")
+    assert site.confidence == 0.5 and "shuffles" in site.message
+    result = convert(script.replace("tickets-1*.csv", "routes.csv"))
+    site = next(s for s in result.sites if s.key == "frame.merge")
+    assert site.confidence > 0.5
+
+
 def test_head_of_all_partitions_is_exact(tmp_path):
     result = same_outputs("""
         import dask.dataframe as dd
@@ -279,6 +302,18 @@ def test_reset_index_after_a_groupby(tmp_path):
         t.reset_index(drop=True).compute().to_csv("out/t.csv", index=False)
         """, tmp_path)
     assert not todo_keys(result)
+
+
+def test_a_reduction_computed(tmp_path):
+    result = same_outputs("""
+        import dask.dataframe as dd
+        import pandas as pd
+        t = dd.read_csv("data/tickets-*.csv")
+        total = t.fare.sum().compute()
+        most = t.pax.max().compute()
+        pd.DataFrame({"total": [total], "most": [most], "rows": [len(t)]}).to_csv("out/s.csv", index=False)
+        """, tmp_path)
+    assert "compute" not in result.converted_text
 
 
 def test_from_pandas(tmp_path):

@@ -23,7 +23,7 @@ import libcst as cst
 
 from porter.rules import registry, rule
 from porter.translate.context import PandasCall, RuleContext, Unsupported
-from porter.translate.values import Column, Frame, Indexed, Opaque, Value
+from porter.translate.values import Column, Frame, Indexed, Opaque, Scalar, Value
 
 # read_csv options Dask adds to pandas'
 _PARTITIONING = ("blocksize", "sample", "sample_rows")
@@ -36,10 +36,17 @@ def _delegate(key: str, call: PandasCall, ctx: RuleContext) -> Value:
     return registry()[key](call, ctx)
 
 
-def _dask_frame(value: Value) -> Frame:
+def _dask_frame(value: Value, many: bool = True) -> Frame:
     if not isinstance(value, Frame):
         raise Unsupported("the read is not a frame porter follows")
-    return replace(value, dask=True, labels_intact=False)
+    return replace(value, dask=True, dask_many=many, labels_intact=False)
+
+
+def _one_file(call: PandasCall, name: str) -> bool:
+    """The read names one file (no glob, not a list), of one partition: Dask's blocks are 64 MB,
+    or blocksize=None (one partition a file)."""
+    path = call.const(name, 0, None)
+    return isinstance(path, str) and not any(c in path for c in "*?[")
 
 
 @rule("dd.read_csv")
@@ -64,7 +71,8 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                        "as float64")
     kwargs = {k: v for k, v in call.kwargs.items()
               if k not in (*_PARTITIONING, "assume_missing", "include_path_column")}
-    return _dask_frame(_delegate("pd.read_csv", replace(call, kwargs=kwargs), ctx))
+    return _dask_frame(_delegate("pd.read_csv", replace(call, kwargs=kwargs), ctx),
+                       many=not _one_file(call, "urlpath"))
 
 
 @rule("dd.read_parquet")
@@ -81,7 +89,8 @@ def read_parquet(call: PandasCall, ctx: RuleContext) -> Value:
     renamed = dict(call.kwargs)
     if "path" in renamed:
         renamed["path"] = renamed.pop("path")
-    return _dask_frame(_delegate("pd.read_parquet", replace(call, kwargs=renamed), ctx))
+    return _dask_frame(_delegate("pd.read_parquet", replace(call, kwargs=renamed), ctx),
+                       many=not _one_file(call, "path"))
 
 
 @rule("dd.from_pandas")
@@ -97,20 +106,28 @@ def from_pandas(call: PandasCall, ctx: RuleContext) -> Value:
         frame_of = frame.frame
         if frame_of.index or not frame_of.labels_intact:
             raise ctx.todo("a Series with labels: Dask sorts by them (sort=True)")
-        return replace(frame, frame=replace(frame_of, dask=True))
+        return replace(frame, frame=replace(frame_of, dask=True,
+                                            dask_many=_several(call)))
     if not isinstance(frame, Frame):
         raise ctx.todo("from_pandas of something porter does not hold as a frame")
     if (frame.index or not frame.labels_intact) and call.const("sort", None, True) is not False:
         raise ctx.todo("sort=True sorts the rows by the frame's labels, which are not 0..n-1 here")
-    return replace(frame, dask=True)
+    return replace(frame, dask=True, dask_many=_several(call))
 
 
-@rule("dd.frame.compute", "dd.series.compute", "dd.frame.persist", "dd.series.persist")
+def _several(call: PandasCall) -> bool:
+    """from_pandas makes more than one partition (npartitions > 1, or chunksize=)."""
+    return call.has("chunksize") or call.const("npartitions", 1, 1) != 1
+
+
+@rule("dd.frame.compute", "dd.series.compute", "dd.frame.persist", "dd.series.persist",
+      "dd.scalar.compute", "dd.scalar.persist")
 def compute(call: PandasCall, ctx: RuleContext) -> Value:
     """.compute() -> the same plan (porter collects where the values are needed: a write
     sinks it, a print collects it); .persist() -> the same plan.
 
-    Handles: the computed frame is pandas' from there on (a groupby on it sorts again).
+    Handles: the computed frame is pandas' from there on (a groupby on it sorts again); a
+    reduction's value (ddf.fare.sum().compute()), which porter computes where it is made.
     """
     ctx.reject_unknown(call, "scheduler", "num_workers", "optimize_graph")
     value = call.receiver
@@ -120,6 +137,8 @@ def compute(call: PandasCall, ctx: RuleContext) -> Value:
         return replace(value, dask=False)
     if isinstance(value, Column):
         return replace(value, frame=replace(value.frame, dask=False))
+    if isinstance(value, Scalar):
+        return value
     raise ctx.todo("compute of a value porter does not follow")
 
 

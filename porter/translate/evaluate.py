@@ -438,6 +438,10 @@ class Evaluator:
                 else s for s in receiver.sites))
             return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
         dask_key = _dask_key(receiver, name)
+        if dask_key is None and name in ("compute", "persist") and isinstance(receiver, Scalar) \
+                and any(isinstance(v, Module) and v.qualname == "dask" for v in self.env.values()):
+            # a Dask frame's reduction (ddf.fare.sum()), computed: a Python value here already
+            dask_key = f"dd.scalar.{name}"
         if dask_key is not None:
             if name in ("npartitions",):
                 return self.dispatch(dask_key, PandasCall(receiver, name, node=node), node)
@@ -740,7 +744,11 @@ class Evaluator:
             return self.todo_unhandled(func, node, "`*args`/`**kwargs` unpacking is not handled")
         positional, keywords = args
         if isinstance(func, BoundMethod):
-            key = _dask_key(func.receiver, func.name) or f"{_prefix(func.receiver)}.{func.name}"
+            key = _dask_key(func.receiver, func.name) or (
+                f"dd.scalar.{func.name}" if isinstance(func.receiver, Scalar)
+                and func.name in ("compute", "persist")
+                and any(isinstance(v, Module) and v.qualname == "dask" for v in self.env.values())
+                else f"{_prefix(func.receiver)}.{func.name}")
             call = PandasCall(func.receiver, func.name, positional, keywords, node)
             if key == "frame.groupby" and _groups_by_time(call):
                 key = "frame.groupby.grouper"  # time bins among the keys (rules/resample.py)
@@ -1180,13 +1188,22 @@ class Evaluator:
             reason = (f"porter could not read this call ({type(exc).__name__}: {exc}); "
                       f"internal error: please report")
             return self.todo(key, call, node, reason, entry=entry)
+        if key in _MERGES and sum(_dask_frame(v) and _frame_of(v).dask_many
+                                  for v in (call.receiver, *call.args, *call.kwargs.values())) >= 2:
+            # Dask merges two frames of several partitions by shuffling both on the key
+            ctx.lower("a merge of two Dask frames of several partitions shuffles their rows on "
+                      "the key: Dask's rows come in another order than pandas' (and their "
+                      "labels start again in each partition); sort the result", 0.5)
+        many = any(_dask_frame(v) and _frame_of(v).dask_many
+                   for v in (call.receiver, *call.args, *call.kwargs.values())) \
+            and not key.startswith(("groupby.", "frame.groupby"))
         if key not in _DASK_COMPUTED and _from_dask(call):
             # a step of a Dask frame (merge, assign, a filter, a groupby's sum...) gives a Dask
             # frame or column again
             if isinstance(result, Frame) and not result.dask:
-                result = replace(result, dask=True)
+                result = replace(result, dask=True, dask_many=many)
             elif isinstance(result, Column) and not result.element and not result.frame.dask:
-                result = replace(result, frame=replace(result.frame, dask=True))
+                result = replace(result, frame=replace(result.frame, dask=True, dask_many=many))
         if ctx.inside_from_pandas and ctx.handover and isinstance(result, PandasValue):
             return result  # porter's own hand-over, met again on a later pass: nothing new
         status = "handover" if entry.status == "handover" or ctx.handover else "converted"
@@ -1733,6 +1750,13 @@ def _dask_frame(value: object) -> bool:
     if isinstance(value, (Column, Grouped)):
         value = value.frame
     return isinstance(value, Frame) and value.dask
+
+
+_MERGES = frozenset({"frame.merge", "pd.merge", "frame.join"})
+
+
+def _frame_of(value: object) -> Frame:
+    return value.frame if isinstance(value, (Column, Grouped)) else value  # type: ignore[return-value]
 
 
 def _from_dask(call: PandasCall) -> bool:
