@@ -193,6 +193,33 @@ def test_merge_of_two_frames_of_several_files_is_lowered(tmp_path):
     assert site.confidence > 0.5
 
 
+@pytest.mark.parametrize("line, key", [
+    ('t.sort_values("pax").compute().to_csv("out/s.csv", index=False)', "frame.sort_values"),
+    ('t.drop_duplicates("route").compute().to_csv("out/s.csv", index=False)', "frame.drop_duplicates"),
+])
+def test_orders_dask_decides_by_its_partitions_are_lowered(line, key):
+    result = convert(f'import dask.dataframe as dd\nt = dd.read_csv("data/tickets-*.csv")\n{line}\n')
+    site = next(s for s in result.sites if s.key == key)
+    assert site.confidence == 0.5 and "Dask" in site.message, result.converted_text
+
+
+def test_dask_sort_is_not_stable_over_partitions(tmp_path):
+    # why the sort above is lowered: equal keys in another order than pandas' stable sort
+    folder = tmp_path / "d"
+    _run('import random\n'
+         'import pandas as pd\n'
+         'import dask.dataframe as dd\n'
+         'rng = random.Random(3)\n'
+         'for i in range(4):\n'
+         '    keys = [rng.choice("abcde") for _ in range(6)]\n'
+         '    pd.DataFrame({"k": keys, "v": [rng.choice([1, 2, 3]) for _ in keys],\n'
+         '                  "i": [f"{i}-{j}" for j in range(6)]}).to_csv(f"data/l-{i}.csv", index=False)\n'
+         'dd.read_csv("data/l-*.csv").sort_values("v").compute().to_csv("out/s.csv", index=False)\n'
+         'dd.read_csv("data/l-*.csv").compute().sort_values("v", kind="stable")'
+         '.to_csv("out/p.csv", index=False)\n', folder)
+    assert (folder / "out" / "s.csv").read_text() != (folder / "out" / "p.csv").read_text()
+
+
 def test_head_of_all_partitions_is_exact(tmp_path):
     result = same_outputs("""
         import dask.dataframe as dd

@@ -1194,6 +1194,8 @@ class Evaluator:
             ctx.lower("a merge of two Dask frames of several partitions shuffles their rows on "
                       "the key: Dask's rows come in another order than pandas' (and their "
                       "labels start again in each partition); sort the result", 0.5)
+        if key in _DASK_ORDERS and _dask_frame(call.receiver) and _frame_of(call.receiver).dask_many:
+            ctx.lower(_DASK_ORDERS[key], 0.5)
         many = any(_dask_frame(v) and _frame_of(v).dask_many
                    for v in (call.receiver, *call.args, *call.kwargs.values())) \
             and not key.startswith(("groupby.", "frame.groupby"))
@@ -1753,6 +1755,17 @@ def _dask_frame(value: object) -> bool:
 
 
 _MERGES = frozenset({"frame.merge", "pd.merge", "frame.join"})
+# steps whose order (or which of equal rows is kept) Dask decides by its partitions (checked
+# against dask 2026.8 on files of repeated keys)
+_DASK_SORT = ("Dask's sort_values on several partitions is not stable: rows with equal keys "
+              "come in another order than pandas' (sort by enough columns to leave no ties)")
+_DASK_DUPLICATES = ("Dask drops duplicates per partition, then over the partitions' results: "
+                    "the rows kept and their order are not pandas'")
+_DASK_ORDERS = {"frame.sort_values": _DASK_SORT, "series.sort_values": _DASK_SORT,
+                "frame.drop_duplicates": _DASK_DUPLICATES,
+                "series.drop_duplicates": _DASK_DUPLICATES,
+                "series.unique": "Dask's unique() of several partitions does not keep the order "
+                                 "the values first appear in"}
 
 
 def _frame_of(value: object) -> Frame:
