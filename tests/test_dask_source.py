@@ -352,3 +352,16 @@ def test_from_pandas(tmp_path):
         r.assign(long=r.km * 1000).compute().to_csv("out/r.csv", index=False)
         """, tmp_path)
     assert not todo_keys(result)
+
+
+def test_a_folder_conversion_finds_a_script_importing_only_dask(tmp_path):
+    (tmp_path / "src").mkdir()
+    (tmp_path / "src" / "tickets.py").write_text(
+        'import dask.dataframe as dd\n'
+        't = dd.read_csv("data/tickets-*.csv")\n'
+        't.to_csv("out/all.csv", single_file=True, index=False)\n', encoding="utf-8")
+    done = subprocess.run([sys.executable, "-m", "porter", "convert", str(tmp_path / "src"),
+                           "-o", str(tmp_path / "out")], capture_output=True, text=True, timeout=120,
+                          cwd=Path(__file__).resolve().parent.parent)
+    assert done.returncode == 0, done.stderr
+    assert "pl.scan_csv(" in (tmp_path / "out" / "tickets.py").read_text(encoding="utf-8")
