@@ -365,3 +365,23 @@ def test_a_folder_conversion_finds_a_script_importing_only_dask(tmp_path):
                           cwd=Path(__file__).resolve().parent.parent)
     assert done.returncode == 0, done.stderr
     assert "pl.scan_csv(" in (tmp_path / "out" / "tickets.py").read_text(encoding="utf-8")
+
+
+def test_verify_computes_the_dask_originals_frames(tmp_path):
+    import json
+    folder = tmp_path / "case"
+    _run("", folder)
+    (folder / "tickets.py").write_text(
+        'import dask.dataframe as dd\n'
+        't = dd.read_csv("data/tickets-*.csv")\n'
+        'by = t.groupby("deck", sort=True).pax.sum()\n'
+        'by.compute().to_csv("by.csv")\n', encoding="utf-8")
+    report = tmp_path / "verify.json"
+    done = subprocess.run([sys.executable, "-m", "porter", "verify", str(folder / "tickets.py"),
+                           "--data", str(folder), "--json", str(report)], capture_output=True,
+                          text=True, timeout=300, cwd=Path(__file__).resolve().parent.parent)
+    assert done.returncode == 0, done.stdout + done.stderr
+    text = report.read_text(encoding="utf-8")
+    compared = json.loads(text)
+    assert '"by"' in text and '"t"' in text, text
+    assert "same" in json.dumps(compared).lower()

@@ -2184,6 +2184,7 @@ class _Walker:
         version = value.frame.version(column) if plain else fresh_token()
         frame = Frame(emit.atom(name), rows=value.frame.rows, columns=(column,),
                       versions=((column, version),), labels_intact=value.frame.labels_intact,
+                      dask=value.frame.dask, dask_many=value.frame.dask_many,
                       dtypes=((column, value.dtype),) if value.dtype else ())
         kept = Column(emit.col(column), frame=frame, name=value.name, dtype=value.dtype,
                       refs=frozenset({column}), versions=((column, version),),
@@ -2291,6 +2292,7 @@ class _Walker:
                 # the same rows, in the same order, as the frame the Series came from
                 frame = Frame(emit.atom(name), columns=known, rows=rows,
                               index=value.frame.index, labels_intact=value.frame.labels_intact,
+                              dask=value.frame.dask, dask_many=value.frame.dask_many,
                               index_unnamed=value.frame.index_unnamed,
                               binding=self.statement_key,
                               dtypes=tuple((c, t) for c, t in value.frame.dtypes

@@ -387,6 +387,18 @@ class Evaluator:
         return derived_column(columns[0], code, dtype="str", others=columns[1:], name=None) \
             .with_sites(*(x for p in parts for x in p.sites))
 
+    def dask_compute_key(self, receiver: Value, name: str) -> str | None:
+        """`x.compute()` / `x.persist()` in a script that imports dask.dataframe: Dask's."""
+        if not any(isinstance(v, Module) and v.qualname == "dask" for v in self.env.values()):
+            return None
+        if isinstance(receiver, Frame):
+            return f"dd.frame.{name}"
+        if isinstance(receiver, Column) and not receiver.element:
+            return f"dd.series.{name}"
+        if isinstance(receiver, Scalar):
+            return f"dd.scalar.{name}"
+        return None
+
     def numpy_name(self) -> str:
         """The name the script imports numpy as ("np" when it does not)."""
         for name, value in self.env.items():
@@ -438,10 +450,10 @@ class Evaluator:
                 else s for s in receiver.sites))
             return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
         dask_key = _dask_key(receiver, name)
-        if dask_key is None and name in ("compute", "persist") and isinstance(receiver, Scalar) \
-                and any(isinstance(v, Module) and v.qualname == "dask" for v in self.env.values()):
-            # a Dask frame's reduction (ddf.fare.sum()), computed: a Python value here already
-            dask_key = f"dd.scalar.{name}"
+        if dask_key is None and name in ("compute", "persist"):
+            # pandas has no compute(): in a Dask script it is Dask's (a reduction's value,
+            # ddf.fare.sum(), or a frame whose Dask mark a step did not carry)
+            dask_key = self.dask_compute_key(receiver, name)
         if dask_key is not None:
             if name in ("npartitions",):
                 return self.dispatch(dask_key, PandasCall(receiver, name, node=node), node)
@@ -745,10 +757,8 @@ class Evaluator:
         positional, keywords = args
         if isinstance(func, BoundMethod):
             key = _dask_key(func.receiver, func.name) or (
-                f"dd.scalar.{func.name}" if isinstance(func.receiver, Scalar)
-                and func.name in ("compute", "persist")
-                and any(isinstance(v, Module) and v.qualname == "dask" for v in self.env.values())
-                else f"{_prefix(func.receiver)}.{func.name}")
+                func.name in ("compute", "persist") and self.dask_compute_key(func.receiver, func.name)
+                or f"{_prefix(func.receiver)}.{func.name}")
             call = PandasCall(func.receiver, func.name, positional, keywords, node)
             if key == "frame.groupby" and _groups_by_time(call):
                 key = "frame.groupby.grouper"  # time bins among the keys (rules/resample.py)
