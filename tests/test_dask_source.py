@@ -385,3 +385,13 @@ def test_verify_computes_the_dask_originals_frames(tmp_path):
     compared = json.loads(text)
     assert '"by"' in text and '"t"' in text, text
     assert "same" in json.dumps(compared).lower()
+
+
+def test_a_star_in_a_written_name_is_a_todo_in_a_dask_script():
+    # pandas writes one file under that very name; Dask one per partition
+    result = convert('import dask.dataframe as dd\n'
+                     't = dd.read_csv("data/tickets-*.csv").compute()\n'
+                     't.to_csv("out/part-*.csv", index=False)\n')
+    assert "frame.to_csv" in todo_keys(result) or "frame.labels" in todo_keys(result), \
+        result.converted_text
+    assert "pl.scan_csv" not in result.converted_text

@@ -3318,7 +3318,7 @@ def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
         # `df["c"] = pd.Categorical(..., categories=[...])`: an Enum of pandas' categories
         dtypes = (*((c, t) for c, t in dtypes if c != key), (key, "enum"))
     return Frame(emit.atom(name), columns=columns, dtypes=dtypes,
-                 labels_intact=frame.labels_intact,
+                 labels_intact=frame.labels_intact, dask=frame.dask, dask_many=frame.dask_many,
                  int_labels_except=handover.int_labels_after(frame, key))
 
 
@@ -3603,6 +3603,7 @@ def _merge(a: dict[str, Value], b: dict[str, Value]) -> dict[str, Value]:
                                  dtypes=tuple(set(x.dtypes) & set(y.dtypes)),
                                  index=x.index if x.index == y.index else (),
                                  labels_intact=False,
+                                 dask=x.dask or y.dask, dask_many=x.dask_many or y.dask_many,
                                  binding=y.binding if y.binding is not None else x.binding)
         elif type(x) is type(y) and isinstance(x, (PandasValue, Scalar, Module)):
             merged[name] = x

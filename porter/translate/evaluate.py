@@ -1164,6 +1164,15 @@ class Evaluator:
             return self.todo(key, call, node, "pandas' columns are two levels here (the value "
                              "column, then the key's value): select one value column first",
                              entry=entry)
+        if key in ("frame.to_csv", "series.to_csv", "frame.to_parquet") and call.args \
+                and isinstance(call.args[0], Opaque) and isinstance(call.args[0].const, str) \
+                and "*" in call.args[0].const \
+                and any(isinstance(v, Module) and v.qualname == "dask" for v in self.env.values()):
+            # a Dask frame porter lost track of: Dask writes one file per partition, numbering
+            # the `*`; pandas would write one file under that very name
+            return self.todo(key, call, node, "in a Dask script a `*` in the name writes one "
+                             "file per partition (the `*` numbered 0, 1, ...); porter writes "
+                             "one file: give single_file=True", entry=entry)
         ctx = RuleContext(key, entry, entry.confidence, schema_lookup=self.services.schema_lookup,
                           evaluate=self.evaluate_with,
                           datetimes_possible=self.services.datetimes_possible,
