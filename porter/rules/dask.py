@@ -71,8 +71,14 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                        "as float64")
     kwargs = {k: v for k, v in call.kwargs.items()
               if k not in (*_PARTITIONING, "assume_missing", "include_path_column")}
+    one_file = _one_file(call, "urlpath")
+    if not one_file and ctx.schema_lookup is None:
+        # (with --data porter reads every file and gives the scan the types they share)
+        ctx.lower("over several files Polars infers the types from the first file: a column "
+                  "blank there is text to it, and the numbers of the later files stay text "
+                  "(Dask reads it as float64, 5.0); run with --data or give dtype=", 0.9)
     return _dask_frame(_delegate("pd.read_csv", replace(call, kwargs=kwargs), ctx),
-                       many=not _one_file(call, "urlpath"))
+                       many=not one_file)
 
 
 @rule("dd.read_parquet")
