@@ -421,3 +421,29 @@ def test_a_column_blank_in_the_first_file(tmp_path):
     blind = convert(source)
     site = next(s for s in blind.sites if s.key == "dd.read_csv")
     assert site.confidence <= 0.9 and "first file" in site.message
+
+
+@pytest.mark.parametrize("names, same", [(("p-02", "p-10"), True), (("p-2", "p-10"), False)])
+def test_read_parquet_over_a_glob(tmp_path, names, same):
+    # Dask reads parquet files in natural order (p-2 before p-10), Polars by name
+    sides = {}
+    source = ('import dask.dataframe as dd\n'
+              't = dd.read_parquet("data/p-*.parquet")\n'
+              't.to_csv("out/t.csv", single_file=True, index=False)\n')
+    result = convert(source)
+    for side in ("dask", "polars"):
+        folder = tmp_path / side
+        (folder / "data").mkdir(parents=True)
+        (folder / "out").mkdir()
+        pd.DataFrame({"k": ["a", "b"], "v": [1.5, None]}).to_parquet(folder / "data" / f"{names[0]}.parquet", index=False)
+        pd.DataFrame({"k": ["c", "é"], "v": [2.0, 3.0]}).to_parquet(folder / "data" / f"{names[1]}.parquet", index=False)
+        text = source if side == "dask" else result.converted_text
+        (folder / "s.py").write_text(text, encoding="utf-8")
+        done = subprocess.run([sys.executable, "s.py"], cwd=folder, capture_output=True, text=True,
+                              timeout=120)
+        assert done.returncode == 0, done.stderr + text
+        sides[side] = (folder / "out" / "t.csv").read_text(encoding="utf-8")
+    assert (sides["dask"] == sides["polars"]) is same
+    assert "pl.scan_parquet" in result.converted_text
+    site = next(s for s in result.sites if s.key == "dd.read_parquet")
+    assert site.confidence == 0.7 and "natural order" in site.message

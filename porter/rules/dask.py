@@ -6,7 +6,10 @@ What Dask does differently, checked against dask 2026.8 with pandas 3.1:
 - dd.read_csv("data/t-*.csv") reads the files in the order of their sorted names (t-1, t-10,
   t-2), as Polars' scan over the glob does; each file (each block of 64 MB) is a partition
   whose row labels start again at 0, so the labels repeat;
-- groupby does not sort its groups (sort=None): they come in the order met (rules/groupby.py);
+- groupby does not sort its groups (sort=None): their order depends on the partitions and on
+  the aggregation (rules/groupby.py lowers it to 0.5 unless sort=True);
+- sort_values is not stable over partitions, drop_duplicates / unique work per partition first,
+  and a merge of two frames of several partitions shuffles the rows (evaluate.py lowers them);
 - head(n) reads the first partition only (npartitions=1) and gives fewer rows when it has
   fewer than n;
 - value_counts() is not sorted by count over the whole result;
@@ -85,17 +88,18 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
 def read_parquet(call: PandasCall, ctx: RuleContext) -> Value:
     """dd.read_parquet("data/*.parquet") -> pl.scan_parquet over the same glob.
 
-    Handles: columns=, the files in the order of their sorted names. Caveats: Dask may make a
-    column the index from pandas' metadata in the files (index=None): 0.9; its other options
-    are TODOs.
+    Handles: columns=. Caveats: Dask reads the files in natural order (p-2 before p-10), Polars
+    in the order of their names (0.7 over a glob); Dask may make a column the index from pandas'
+    metadata in the files (index=None): 0.9; its other options are TODOs.
     """
     ctx.reject_unknown(call, "path", "columns", positional=1)
     ctx.lower("Dask makes the index pandas wrote into the files' metadata the frame's index "
               "again; porter reads the columns as Polars sees them", 0.9)
-    renamed = dict(call.kwargs)
-    if "path" in renamed:
-        renamed["path"] = renamed.pop("path")
-    return _dask_frame(_delegate("pd.read_parquet", replace(call, kwargs=renamed), ctx),
+    if not _one_file(call, "path"):
+        ctx.lower("Dask reads the files of a glob in natural order (p-2 before p-10), Polars in "
+                  "the order of their names (p-10 before p-2): the same rows in the same order "
+                  "where the numbers in the names have the same width (p-02, p-10)", 0.7)
+    return _dask_frame(_delegate("pd.read_parquet", call, ctx),
                        many=not _one_file(call, "path"))
 
 
