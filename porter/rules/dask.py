@@ -79,7 +79,7 @@ def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         # (with --data porter reads every file and gives the scan the types they share)
         ctx.lower("over several files Polars infers the types from the first file: a column "
                   "blank there is text to it, and the numbers of the later files stay text "
-                  "(Dask reads it as float64, 5.0); run with --data or give dtype=", 0.9)
+                  "(Dask reads it as float64, 5.0); run with --data", 0.9)
     return _dask_frame(_delegate("pd.read_csv", replace(call, kwargs=kwargs), ctx),
                        many=not one_file)
 
