@@ -7,7 +7,7 @@ BIN := $(VENV)/bin
 $(BIN)/porter: pyproject.toml
 	$(PYTHON) -m venv $(VENV)
 	$(BIN)/python -m pip install --quiet --upgrade pip
-	$(BIN)/python -m pip install --quiet -e ".[test]"
+	$(BIN)/python -m pip install --quiet -e ".[test,dask]"
 	touch $(BIN)/porter
 
 .PHONY: demo test

@@ -31,10 +31,11 @@ from porter.reports import TODO_MARKER, Mode
 DEFAULT_MAX_SIZE = 2 * 1024 * 1024
 # Folders never searched: virtual environments, caches, build outputs (hidden ones too).
 SKIPPED_FOLDERS = frozenset({"__pycache__", "build", "dist", "node_modules", "venv", ".venv", "env"})
-# Every script porter converts imports pandas (or modin.pandas): without such a line it cannot
+# Every script porter converts imports pandas (or modin.pandas, or dask.dataframe, whose frames
+# take pandas' API): without such a line it cannot
 # hold pandas code, and the file is copied without being parsed. Loose on purpose (a notebook's
 # JSON keeps each source line inside a string), it only has to miss nothing.
-PANDAS_IMPORT = re.compile(r"\b(?:import|from)\b[^\n]*\b(?:pandas|modin)\b")
+PANDAS_IMPORT = re.compile(r"\b(?:import|from)\b[^\n]*\b(?:pandas|modin|dask)\b")
 # A TODO left by an earlier conversion (the converted script may no longer import pandas).
 
 

@@ -32,11 +32,24 @@ def reference_python(name: str) -> str | None:
     """The Python the original of case `name` runs under: None for porter's own, else one with
     the pandas its corpus/<name>/reference.txt declares (porter.verify.declared); under pytest
     a case whose declared pandas cannot be had here is skipped with the reason."""
+    if _imports_dask(CORPUS / name / f"{name}.py"):
+        import importlib.util
+        if importlib.util.find_spec("dask") is None or importlib.util.find_spec("dask.dataframe") is None:
+            import pytest
+            pytest.skip(f"{name} is a Dask script and Dask is not installed here (the dask "
+                        "extra: pip install -e '.[dask]')")
     try:
         return python_for(CORPUS / name)
     except ReferenceUnavailable as exc:
         import pytest
         pytest.skip(str(exc))
+
+
+def _imports_dask(script: Path) -> bool:
+    """The case's original imports Dask's DataFrame module: it runs only where Dask is."""
+    import re
+    return bool(re.search(r"^\s*(import dask\.dataframe|from dask(\.dataframe)? import)",
+                          script.read_text(encoding="utf-8"), re.MULTILINE))
 
 
 def run_case(name: str, tmp: Path) -> CaseRun:

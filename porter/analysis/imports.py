@@ -10,6 +10,9 @@ from libcst.helpers import get_full_name_for_node
 # Modules with pandas' API under another name.
 PANDAS_MODULES = {"pandas", "modin.pandas"}
 NUMPY_MODULES = {"numpy"}
+# Dask's DataFrame module: its functions are mapping keys of their own (`dd.read_csv`,
+# mappings/dask.toml); the frames they make take pandas' rules for the rest of their API
+DASK_MODULES = {"dask.dataframe"}
 
 
 @dataclass
@@ -23,7 +26,12 @@ class ImportFacts:
 
     @property
     def uses_pandas(self) -> bool:
-        return any(v == "pandas" or v.startswith("pandas.") for v in self.names.values())
+        return any(v in ("pandas", "dask") or v.startswith(("pandas.", "dask."))
+                   for v in self.names.values())
+
+    @property
+    def uses_dask(self) -> bool:
+        return any(v == "dask" or v.startswith("dask.") for v in self.names.values())
 
 
 def _canonical(module: str) -> str | None:
@@ -31,6 +39,8 @@ def _canonical(module: str) -> str | None:
         return "pandas"
     if module in NUMPY_MODULES:
         return "numpy"
+    if module in DASK_MODULES:
+        return "dask"
     return None
 
 
@@ -50,13 +60,21 @@ class _ImportCollector(cst.CSTVisitor):
                 self.facts.names[_asname(alias)] = canonical
             elif "." not in module:
                 self.facts.names[module] = canonical
-            if canonical == "pandas":
+            if canonical in ("pandas", "dask"):
                 self.facts.pandas_imports.append(node)
             elif canonical == "numpy" and node not in self.facts.numpy_imports:
                 self.facts.numpy_imports.append(node)
 
     def visit_ImportFrom(self, node: cst.ImportFrom) -> None:
         if node.module is None or node.relative:
+            return
+        if get_full_name_for_node(node.module) == "dask" and not isinstance(node.names, cst.ImportStar):
+            # from dask import dataframe as dd
+            for alias in node.names:
+                if get_full_name_for_node(alias.name) == "dataframe":
+                    local = _asname(alias) if alias.asname is not None else "dataframe"
+                    self.facts.names[local] = "dask"
+                    self.facts.pandas_imports.append(node)
             return
         canonical = _canonical(get_full_name_for_node(node.module) or "")
         if canonical is None or isinstance(node.names, cst.ImportStar):
@@ -65,7 +83,7 @@ class _ImportCollector(cst.CSTVisitor):
             name = get_full_name_for_node(alias.name) or ""
             local = _asname(alias) if alias.asname is not None else name
             self.facts.names[local] = f"{canonical}.{name}"
-        if canonical == "pandas":
+        if canonical in ("pandas", "dask"):
             self.facts.pandas_imports.append(node)
         elif canonical == "numpy":
             self.facts.numpy_imports.append(node)

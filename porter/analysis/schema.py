@@ -158,6 +158,8 @@ class SchemaReader:
         return self.cache[key]
 
     def _read(self, reader: str, path: str, options: dict[str, Any]) -> dict[str, str] | None:
+        if any(c in path for c in "*?[") and not is_url(path):
+            return self._read_glob(reader, path, options)
         if is_url(path) or compression_of(path) in NOT_DECOMPRESSED:
             return None  # never read as text what Polars cannot read (zip bytes as a header)
         file = self.root / path
@@ -192,6 +194,21 @@ class SchemaReader:
                     return None
                 return self._read_decoded(reader, copy, options)
         return self._read_decoded(reader, file, options)
+
+    def _read_glob(self, reader: str, path: str, options: dict[str, Any]) -> dict[str, str] | None:
+        """A glob (Dask's dd.read_csv("data/t-*.csv"), Polars' scan over it): the schema its
+        files share, in the order of their sorted names; None when they differ or none match."""
+        try:
+            files = sorted(str(f.relative_to(self.root)) for f in self.root.glob(path) if f.is_file())
+        except (ValueError, NotImplementedError, OSError):
+            return None
+        if not files:
+            return None
+        found = [self(reader, f, options) for f in files]
+        if not all(isinstance(f, FileSchema) for f in found):
+            return None
+        schema = merged(found)  # type: ignore[arg-type]
+        return None if schema is None or schema.partial else schema
 
     def _read_decoded(self, reader: str, file: Path, options: dict[str, Any]) -> dict[str, str] | None:
         if reader == "csv":

@@ -556,8 +556,18 @@ def groupby(call: PandasCall, ctx: RuleContext) -> Value:
     if any(frame.dtype(k) == "category" for k in keys):
         ctx.lower("category keys sort by their categories in pandas; porter sorts by text, which "
                   "is the same for categories made by astype('category')", 0.9)
+    sort = call.const("sort", None, None)
+    if sort is not True and frame.dask:
+        # Dask's groupby (sort=None or False) does not sort: with one output partition (split_out=1)
+        # its order depends on the aggregation's path (a Series' sum sorts each partition's
+        # groups, then keeps the order they are met in over the partitions; agg({...}) keeps
+        # the order met) and on how the files split into partitions
+        ctx.lower("Dask's groupby does not sort its groups, and their order depends on its "
+                  "partitions and on the aggregation (each partition's groups sorted, then "
+                  "in the order met; agg({...}) in the order met): porter orders them as "
+                  "pandas would; give sort=True, or sort the result", 0.5)
     return Grouped(frame.code, frame=frame, keys=tuple(keys),
-                   sort=bool(call.const("sort", None, True)),
+                   sort=bool(sort if sort is not None else True),
                    dropna=bool(call.const("dropna", None, True)),
                    as_index=bool(call.const("as_index", None, True)),
                    group_keys=bool(call.const("group_keys", None, True, kinds=(bool,))),
@@ -638,8 +648,18 @@ def series_groupby(call: PandasCall, ctx: RuleContext) -> Value:
                        + (((name, column.dtype),) if column.dtype else ()))
         if name == "_porter_values":
             raise Unsupported("a computed Series whose name porter cannot keep")
+    sort = call.const("sort", None, None)
+    if sort is not True and frame.dask:
+        # Dask's groupby (sort=None or False) does not sort: with one output partition (split_out=1)
+        # its order depends on the aggregation's path (a Series' sum sorts each partition's
+        # groups, then keeps the order they are met in over the partitions; agg({...}) keeps
+        # the order met) and on how the files split into partitions
+        ctx.lower("Dask's groupby does not sort its groups, and their order depends on its "
+                  "partitions and on the aggregation (each partition's groups sorted, then "
+                  "in the order met; agg({...}) in the order met): porter orders them as "
+                  "pandas would; give sort=True, or sort the result", 0.5)
     return Grouped(frame.code, frame=frame, keys=tuple(keys),
-                   sort=bool(call.const("sort", None, True)),
+                   sort=bool(sort if sort is not None else True),
                    dropna=bool(call.const("dropna", None, True)),
                    group_keys=bool(call.const("group_keys", None, True, kinds=(bool,))),
                    selection=(name,), single=True,

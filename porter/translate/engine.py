@@ -1989,11 +1989,15 @@ class _Walker:
             lines.append(f"{name} = {self.services.code_for(expr)}")
         env[name] = PandasValue(emit.atom(name))
         # one marker for the statement, not one per call in it: each call is pandas' own
-        site = SiteDraft("frame.labels", "handover", "todo", 0.0,
-                         f"pandas code reads the row labels of `{name}` later, which are the "
-                         "original row numbers after a filter or sort: pandas makes it; to port "
-                         "it, keep the row number as a column (with_row_index) where the frame is "
-                         "read and use that column where the labels are read",
+        message = (f"pandas code reads the row labels of `{name}` later, which are the "
+                   "original row numbers after a filter or sort: pandas makes it; to port "
+                   "it, keep the row number as a column (with_row_index) where the frame is "
+                   "read and use that column where the labels are read")
+        if isinstance(value, Frame) and value.dask:
+            message = (f"code kept on Dask reads `{name}` later (a call porter does not port, "
+                       "or Dask's row labels, which start again at 0 in each partition): the "
+                       "read stays Dask's")
+        site = SiteDraft("frame.labels", "handover", "todo", 0.0, message,
                          *self.services.statement_lines)
         sites = [replace(x, status="handover", confidence=1.0,
                          message=f"made by pandas with `{name}`, for its row labels")
@@ -2217,6 +2221,7 @@ class _Walker:
         version = value.frame.version(column) if plain else fresh_token()
         frame = Frame(emit.atom(name), rows=value.frame.rows, columns=(column,),
                       versions=((column, version),), labels_intact=value.frame.labels_intact,
+                      dask=value.frame.dask, dask_many=value.frame.dask_many,
                       dtypes=((column, value.dtype),) if value.dtype else ())
         kept = Column(emit.col(column), frame=frame, name=value.name, dtype=value.dtype,
                       refs=frozenset({column}), versions=((column, version),),
@@ -2324,6 +2329,7 @@ class _Walker:
                 # the same rows, in the same order, as the frame the Series came from
                 frame = Frame(emit.atom(name), columns=known, rows=rows,
                               index=value.frame.index, labels_intact=value.frame.labels_intact,
+                              dask=value.frame.dask, dask_many=value.frame.dask_many,
                               index_unnamed=value.frame.index_unnamed,
                               binding=self.statement_key,
                               dtypes=tuple((c, t) for c, t in value.frame.dtypes
@@ -3404,7 +3410,7 @@ def _after_change(name: str, frame: Value, statement: cst.CSTNode | None,
         # `df["c"] = pd.Categorical(..., categories=[...])`: an Enum of pandas' categories
         dtypes = (*((c, t) for c, t in dtypes if c != key), (key, "enum"))
     return Frame(emit.atom(name), columns=columns, dtypes=dtypes,
-                 labels_intact=frame.labels_intact,
+                 labels_intact=frame.labels_intact, dask=frame.dask, dask_many=frame.dask_many,
                  int_labels_except=handover.int_labels_after(frame, key))
 
 
@@ -3689,6 +3695,7 @@ def _merge(a: dict[str, Value], b: dict[str, Value]) -> dict[str, Value]:
                                  dtypes=tuple(set(x.dtypes) & set(y.dtypes)),
                                  index=x.index if x.index == y.index else (),
                                  labels_intact=False,
+                                 dask=x.dask or y.dask, dask_many=x.dask_many or y.dask_many,
                                  binding=y.binding if y.binding is not None else x.binding)
         elif type(x) is type(y) and isinstance(x, (PandasValue, Scalar, Module)):
             merged[name] = x

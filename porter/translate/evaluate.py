@@ -396,6 +396,18 @@ class Evaluator:
         return derived_column(columns[0], code, dtype="str", others=columns[1:], name=None) \
             .with_sites(*(x for p in parts for x in p.sites))
 
+    def dask_compute_key(self, receiver: Value, name: str) -> str | None:
+        """`x.compute()` / `x.persist()` in a script that imports dask.dataframe: Dask's."""
+        if not any(isinstance(v, Module) and v.qualname == "dask" for v in self.env.values()):
+            return None
+        if isinstance(receiver, Frame):
+            return f"dd.frame.{name}"
+        if isinstance(receiver, Column) and not receiver.element:
+            return f"dd.series.{name}"
+        if isinstance(receiver, Scalar):
+            return f"dd.scalar.{name}"
+        return None
+
     def numpy_name(self) -> str:
         """The name the script imports numpy as ("np" when it does not)."""
         for name, value in self.env.items():
@@ -445,6 +457,15 @@ class Evaluator:
             receiver = replace(receiver, sites=tuple(
                 replace(s, status="converted") if s.key == "frame.loc" and s.status == "handover"
                 else s for s in receiver.sites))
+            return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
+        dask_key = _dask_key(receiver, name)
+        if dask_key is None and name in ("compute", "persist"):
+            # pandas has no compute(): in a Dask script it is Dask's (a reduction's value,
+            # ddf.fare.sum(), or a frame whose Dask mark a step did not carry)
+            dask_key = self.dask_compute_key(receiver, name)
+        if dask_key is not None:
+            if name in ("npartitions",):
+                return self.dispatch(dask_key, PandasCall(receiver, name, node=node), node)
             return BoundMethod(receiver.code.attr(name), receiver=receiver, name=name)
         if isinstance(receiver, Frame):
             if name in ("loc", "iloc", "at") or name == "ix" and name not in (receiver.columns or ()):
@@ -744,7 +765,9 @@ class Evaluator:
             return self.todo_unhandled(func, node, "`*args`/`**kwargs` unpacking is not handled")
         positional, keywords = args
         if isinstance(func, BoundMethod):
-            key = f"{_prefix(func.receiver)}.{func.name}"
+            key = _dask_key(func.receiver, func.name) or (
+                func.name in ("compute", "persist") and self.dask_compute_key(func.receiver, func.name)
+                or f"{_prefix(func.receiver)}.{func.name}")
             call = PandasCall(func.receiver, func.name, positional, keywords, node)
             if key == "frame.groupby" and _groups_by_time(call):
                 key = "frame.groupby.grouper"  # time bins among the keys (rules/resample.py)
@@ -1162,6 +1185,15 @@ class Evaluator:
             return self.todo(key, call, node, "pandas' columns are two levels here (the value "
                              "column, then the key's value): select one value column first",
                              entry=entry)
+        if key in ("frame.to_csv", "series.to_csv", "frame.to_parquet") and call.args \
+                and isinstance(call.args[0], Opaque) and isinstance(call.args[0].const, str) \
+                and "*" in call.args[0].const \
+                and any(isinstance(v, Module) and v.qualname == "dask" for v in self.env.values()):
+            # a Dask frame porter lost track of: Dask writes one file per partition, numbering
+            # the `*`; pandas would write one file under that very name
+            return self.todo(key, call, node, "in a Dask script a `*` in the name writes one "
+                             "file per partition (the `*` numbered 0, 1, ...); porter writes "
+                             "one file: give single_file=True", entry=entry)
         ctx = RuleContext(key, entry, entry.confidence, schema_lookup=self.services.schema_lookup,
                           evaluate=self.evaluate_with,
                           datetimes_possible=self.services.datetimes_possible,
@@ -1196,6 +1228,24 @@ class Evaluator:
             reason = (f"porter could not read this call ({type(exc).__name__}: {exc}); "
                       f"internal error: please report")
             return self.todo(key, call, node, reason, entry=entry)
+        if key in _MERGES and sum(_dask_frame(v) and _frame_of(v).dask_many
+                                  for v in (call.receiver, *call.args, *call.kwargs.values())) >= 2:
+            # Dask merges two frames of several partitions by shuffling both on the key
+            ctx.lower("a merge of two Dask frames of several partitions shuffles their rows on "
+                      "the key: Dask's rows come in another order than pandas' (and their "
+                      "labels start again in each partition); sort the result", 0.5)
+        if key in _DASK_ORDERS and _dask_frame(call.receiver) and _frame_of(call.receiver).dask_many:
+            ctx.lower(_DASK_ORDERS[key], 0.5)
+        many = any(_dask_frame(v) and _frame_of(v).dask_many
+                   for v in (call.receiver, *call.args, *call.kwargs.values())) \
+            and not key.startswith(("groupby.", "frame.groupby"))
+        if key not in _DASK_COMPUTED and _from_dask(call):
+            # a step of a Dask frame (merge, assign, a filter, a groupby's sum...) gives a Dask
+            # frame or column again
+            if isinstance(result, Frame) and not result.dask:
+                result = replace(result, dask=True, dask_many=many)
+            elif isinstance(result, Column) and not result.element and not result.frame.dask:
+                result = replace(result, frame=replace(result.frame, dask=True, dask_many=many))
         if ctx.inside_from_pandas and ctx.handover and isinstance(result, PandasValue):
             return result  # porter's own hand-over, met again on a later pass: nothing new
         status = "handover" if entry.status == "handover" or ctx.handover else "converted"
@@ -1208,7 +1258,7 @@ class Evaluator:
                 reason += f" ({'; '.join(ctx.reasons)})"
             return self.todo(key, call, node, reason, entry=entry, suggestion=result.code.text)
         if isinstance(result, Frame) and (
-                key.startswith("pd.read_") and "nrows" not in call.kwargs
+                key.startswith(("pd.read_", "dd.read_")) and "nrows" not in call.kwargs
                 or ctx.stacked_rows and set(ctx.stacked_rows) <= self.services.file_rows):
             self.services.file_rows.add(result.rows)  # Polars counts them from the files alone
         line, end_line = self.services.position(node)
@@ -1803,9 +1853,63 @@ _NUMPY_SCALARS = frozenset({"numpy.timedelta64"})
 NUMPY_NAME = "np"  # numpy's name in a conversion of a script that reached it through pd.np only
 
 
+def _dask_frame(value: object) -> bool:
+    """A Dask DataFrame, or a column or the groups of one."""
+    if isinstance(value, (Column, Grouped)):
+        value = value.frame
+    return isinstance(value, Frame) and value.dask
+
+
+_MERGES = frozenset({"frame.merge", "pd.merge", "frame.join"})
+# steps whose order (or which of equal rows is kept) Dask decides by its partitions (checked
+# against dask 2026.8 on files of repeated keys)
+_DASK_SORT = ("Dask's sort_values on several partitions is not stable: rows with equal keys "
+              "come in another order than pandas' (sort by enough columns to leave no ties)")
+_DASK_DUPLICATES = ("Dask drops duplicates per partition, then over the partitions' results: "
+                    "the rows kept and their order are not pandas'")
+_DASK_ORDERS = {"frame.sort_values": _DASK_SORT, "series.sort_values": _DASK_SORT,
+                "frame.drop_duplicates": _DASK_DUPLICATES,
+                "series.drop_duplicates": _DASK_DUPLICATES,
+                "series.unique": "Dask's unique() of several partitions does not keep the order "
+                                 "the values first appear in"}
+
+
+def _frame_of(value: object) -> Frame:
+    return value.frame if isinstance(value, (Column, Grouped)) else value  # type: ignore[return-value]
+
+
+def _from_dask(call: PandasCall) -> bool:
+    return any(_dask_frame(v) for v in (call.receiver, *call.args, *call.kwargs.values()))
+
+
+# what only Dask's frames and series have, or where Dask's differ from pandas' (rules/dask.py)
+DASK_FRAME_METHODS = frozenset({"compute", "persist", "head", "repartition", "map_partitions",
+                                "to_csv", "to_parquet", "set_index", "npartitions",
+                                "partitions", "get_partition", "to_delayed", "visualize",
+                                "reset_index", "value_counts"})
+DASK_SERIES_METHODS = frozenset({"compute", "persist", "head", "npartitions", "repartition",
+                                 "map_partitions", "value_counts", "to_csv", "reset_index",
+                                 "unique", "drop_duplicates"})
+
+
+# Dask methods whose result is pandas' (computed)
+_DASK_COMPUTED = frozenset({"dd.frame.compute", "dd.series.compute", "dd.frame.head",
+                            "dd.series.head"})
+
+
+def _dask_key(receiver: object, name: str) -> str | None:
+    """The `dd.frame.<name>` / `dd.series.<name>` key of a method of a Dask frame or column."""
+    if isinstance(receiver, Frame) and receiver.dask and name in DASK_FRAME_METHODS:
+        return f"dd.frame.{name}"
+    if isinstance(receiver, Column) and not receiver.element and receiver.frame.dask \
+            and name in DASK_SERIES_METHODS:
+        return f"dd.series.{name}"
+    return None
+
+
 def _module_key(qualname: str) -> str:
     module, _, name = qualname.partition(".")
-    return f"{'pd' if module == 'pandas' else 'np'}.{name}"
+    return f"{ {'pandas': 'pd', 'dask': 'dd'}.get(module, 'np')}.{name}"
 
 
 def _getitem_key(receiver: Value, key: Value) -> str:

@@ -143,6 +143,11 @@ def _passed_as_values(module: cst.Module, names: set[str]) -> set[str]:
     except SyntaxError:  # syntax newer than this Python: learn nothing rather than guess
         return names
     callees = {id(node.func) for node in ast.walk(tree) if isinstance(node, ast.Call)}
+    # Dask's ddf.map_partitions(f): rules/dask.py ports it as the call f(ddf), which is where
+    # porter learns f's frame parameter (when f works row by row)
+    callees |= {id(node.args[0]) for node in ast.walk(tree) if isinstance(node, ast.Call)
+                and isinstance(node.func, ast.Attribute) and node.func.attr == "map_partitions"
+                and node.args}
     return {node.id for node in ast.walk(tree)
             if isinstance(node, ast.Name) and node.id in names and id(node) not in callees}
 

@@ -95,7 +95,7 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
     if GROUP_SUM_OVER_FUNCTION in used:
         used.add(GROUP_SUMS_FUNCTION)  # the window sum's definition calls it
     needs_polars = "pl" in used and not facts.has_polars_as_pl
-    pandas_names = {n for n, q in facts.names.items() if q == "pandas" or q.startswith("pandas.")}
+    pandas_names = {n for n, q in facts.names.items() if q in ("pandas", "dask") or q.startswith("pandas.")}
     unused = pandas_names - used
     numpy_names = {n for n, q in facts.names.items() if q == "numpy" or q.startswith("numpy.")}
     used_before = names_used(original) if original is not None else numpy_names

@@ -125,6 +125,13 @@ class Frame(Value):
     # strftime format, as the statement after it names them (df.columns =
     # df.columns.strftime(format)); pandas labels them with the dates until then
     dates_as_text: str | None = field(default=None, kw_only=True)
+    # a Dask DataFrame (dd.read_csv over a glob, ...) until .compute() makes it pandas':
+    # groupby leaves its groups in the order met, head() reads the first partition, and the
+    # methods only Dask has are the `dd.frame.*` keys (rules/dask.py)
+    dask: bool = field(default=False, kw_only=True)
+    # a Dask frame that may have several partitions (read over a glob or a list of files):
+    # a merge of two such frames shuffles their rows (rules/dask.py)
+    dask_many: bool = field(default=False, kw_only=True)
 
     def dtype(self, column: str) -> str | None:
         return dict(self.dtypes).get(column)

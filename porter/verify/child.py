@@ -6,7 +6,8 @@ The script runs exactly as `python SCRIPT` would (its folder first on sys.path, 
 to "__main__"). The moment it ends — normally, with SystemExit or with an exception — the
 child writes what the script alone cost to DUMP_DIR/measure.json (below). Then, unless
 `--no-capture`, every frame-valued global (pandas DataFrame/Series, Polars
-DataFrame/LazyFrame/Series; LazyFrames collected) is pickled into DUMP_DIR as NAME.pickle, and
+DataFrame/LazyFrame/Series; LazyFrames collected; a Dask original's frames computed) is pickled
+into DUMP_DIR as NAME.pickle, and
 Polars expressions left in globals are listed in DUMP_DIR/expressions.txt; the time that takes
 is added to measure.json as `capture_s`, apart from the script's own figures. A script that
 raises prints its traceback and exits 1.
@@ -66,6 +67,7 @@ def frame_values(namespace: dict[str, Any]) -> tuple[dict[str, Any], list[str]]:
     expressions: list[str] = []
     pandas = sys.modules.get("pandas")
     polars = sys.modules.get("polars")
+    dask = sys.modules.get("dask.dataframe")
     for name, value in namespace.items():
         if name.startswith("_"):
             continue
@@ -77,6 +79,12 @@ def frame_values(namespace: dict[str, Any]) -> tuple[dict[str, Any], list[str]]:
             frames[name] = value.collect()
         elif polars is not None and isinstance(value, polars.Expr):
             expressions.append(name)
+        elif dask is not None and isinstance(value, (dask.DataFrame, dask.Series)):
+            # a Dask original's frame: computed, as its conversion's LazyFrame is collected
+            try:
+                frames[name] = value.compute()
+            except Exception:  # noqa: BLE001 - a frame that no longer computes is not compared
+                continue
     return frames, expressions
 
 
