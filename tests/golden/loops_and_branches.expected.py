@@ -31,5 +31,20 @@ if VERBOSE:
     print(plots.collect_schema().names())
 else:
     plots = plots.head(10).collect().lazy()
-total = pandas_total(plots.select(pl.col("fee").implode().alias("values"), pl.col("fee").sum().alias("total")).collect()) + pandas_total(plots.select(pl.col("deposit").implode().alias("values"), pl.col("deposit").sum().alias("total")).collect())
+total = (
+    pandas_total(
+        plots.select(
+            pl.col("fee").implode().alias("values"),
+            pl.col("fee").sum().alias("total"),
+        )
+        .collect(),
+    )
+    + pandas_total(
+        plots.select(
+            pl.col("deposit").implode().alias("values"),
+            pl.col("deposit").sum().alias("total"),
+        )
+        .collect(),
+    )
+)
 print(f"total due: {total:.2f}")

@@ -98,30 +98,19 @@ def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None,
     return pl.map_batches([values, clean], add, return_dtype=kind)
 
 
-def pandas_quantile(column, q):
-    """The q quantile of the column's values as pandas computes it (numpy's linear
-    interpolation a + (b - a) * t, to the last binary digit and the sign of a zero: Polars'
-    quantile can be one digit off, which moves a value sitting on a bin's edge into the next
-    bin, and returns -0.0 where numpy's sum gives 0.0)."""
-    count = column.count()
-    position = (count.cast(pl.Float64) - 1) * q
-    below = position.floor().cast(pl.Int64)
-    last = count.cast(pl.Int64) - 1
-    # numpy at the last value (q=1, or one value) takes it twice with weight position + 1,
-    # which gives the sign of a zero as numpy gives it (-0.0 alone stays -0.0; else 0.0)
-    t = pl.when(position >= last.cast(pl.Float64)).then(position + 1).otherwise(position - below)
-    # the two values around the position, found by selection (no sort): below it, and above
-    # it (the same value where the position falls on one)
-    a = column.drop_nulls().quantile(q, "lower")
-    b = column.drop_nulls().quantile(q, "higher")
-    # where the position falls on a value numpy also reads the next one: NaN when that one
-    # is inf or the value itself is -inf (inf * 0)
-    infinite = ((column == float("inf")).sum() >= last - below)         | ((column == float("-inf")).sum() >= below + 1)
-    return (
-        pl.when((t == 0) & (below < last) & infinite).then(a + float("nan"))
-        .when(t >= 0.5).then(b - (b - a) * (1 - t))
-        .otherwise(a + (b - a) * t)
-    )
+def pandas_percentiles(column, qs):
+    """The quantiles qs of the column's values as pandas computes them: numpy's percentile
+    of the values present (linear interpolation, to the last binary digit and the sign of a
+    zero), a row each; missing where the column holds no value."""
+    import numpy as np
+
+    def percentiles(values):
+        present = values.drop_nulls().cast(pl.Float64).to_numpy()
+        if not len(present):
+            return pl.Series([None] * len(qs), dtype=pl.Float64)
+        return pl.Series(np.percentile(present, [q * 100 for q in qs]), dtype=pl.Float64)
+
+    return column.map_batches(percentiles, return_dtype=pl.Float64)
 
 
 # The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
@@ -382,16 +371,8 @@ print(
             pl.selectors.numeric().min().cast(pl.Float64),
         ),
         daily.select(
-            pl.lit("25%").alias("index"),
-            pandas_quantile(pl.selectors.numeric(), 0.25),
-        ),
-        daily.select(
-            pl.lit("50%").alias("index"),
-            pandas_quantile(pl.selectors.numeric(), 0.5),
-        ),
-        daily.select(
-            pl.lit("75%").alias("index"),
-            pandas_quantile(pl.selectors.numeric(), 0.75),
+            pl.lit(pl.Series(["25%", "50%", "75%"])).alias("index"),
+            pandas_percentiles(pl.selectors.numeric(), [0.25, 0.5, 0.75]),
         ),
         daily.select(
             pl.lit("max").alias("index"),

@@ -240,7 +240,8 @@ def pandas_quantile(column, q):
     b = column.drop_nulls().quantile(q, "higher")
     # where the position falls on a value numpy also reads the next one: NaN when that one
     # is inf or the value itself is -inf (inf * 0)
-    infinite = ((column == float("inf")).sum() >= last - below)         | ((column == float("-inf")).sum() >= below + 1)
+    infinite = ((column == float("inf")).sum() >= last - below) \
+        | ((column == float("-inf")).sum() >= below + 1)
     return (
         pl.when((t == 0) & (below < last) & infinite).then(a + float("nan"))
         .when(t >= 0.5).then(b - (b - a) * (1 - t))

@@ -188,8 +188,7 @@ kg.reset_index(names="shearer").to_csv("data/kg_by_grade.csv", index=False)
 daily = tally.groupby(["shed", "day"]).agg(fleeces=("tally", "count"), kg=("fleece_kg", "sum"))
 print(daily.head())
 sheds = sorted(tally["shed"].unique())
-# TODO(porter): pd.date_range: porter ports a date range as a column of a frame written out
-#   (pd.DataFrame({"day": pd.date_range(...)})); here pandas' DatetimeIndex is used otherwise; write
+# TODO(porter): pd.date_range: `start` is computed at run time; porter needs it written out; write
 #   the range as pl.datetime_range(start, end, interval, eager=True)
 days = pd.date_range(tally["day"].min(), tally["day"].max(), freq="D")
 full = (

@@ -1,0 +1,480 @@
+"""Island ferry line: freight manifests priced by deck, charged fees filled in, the month's
+takings and each deck's heaviest load (a pandas 1.x notebook, written for pandas 1.5: see
+reference.txt).
+
+A blank weight takes the next reading (the weighbridge was down); 'N/A' fees were not charged
+yet and are priced at the sailing's rate for the deck the load travelled on.
+"""
+import pandas as pd
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+
+def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None, floats=True):
+    """Each group's sum of floats (mean=True: mean) as pandas computes it, from the group's
+    values as a list (pl.col(...) in an agg). pandas adds a group with a compensated (Kahan)
+    sum in row order, missing values skipped, which is what Polars' rolling sum computes over
+    a window longer than the group; Polars' own sum adds in another order and can end a unit
+    in the last digit away (212.40000000000003 for 212.4). Where the rows reach pandas
+    grouped in the order of the sorted keys and none is missing, it adds with numpy's
+    reduceat instead: the first value plus numpy's pairwise sum of the rest. That is a
+    resample (sorted_within names the keys whose rows are binned together, [] for all rows)
+    where no value of those rows is missing, or a groupby whose in_key_order says so
+    (computed on the rows before grouping). floats=False: the column's type is not known;
+    whole numbers and True/False are added as Polars adds them (exactly), into Int64."""
+    kept = pl.element().fill_nan(None).drop_nulls()
+    whole_group = 2**40  # a window longer than any group
+
+    def compensated(lists):
+        total = lists.list.eval(kept.rolling_sum(whole_group, min_samples=1).last())
+        total = total.list.first().fill_null(0.0)
+        if not mean:
+            return total
+        return (total / lists.list.eval(kept.len()).list.first()).fill_nan(None)
+
+    def add(columns):
+        lists = columns[0]
+        if lists.dtype.inner != pl.Float64:  # whole numbers, True/False: exact sums
+            total = lists.list.mean() if mean else lists.list.sum()
+            return total.cast(pl.Int64) if total.dtype.is_unsigned_integer() else total
+        if len(columns) == 1 or not len(lists):
+            return compensated(lists)
+        import numpy as np
+
+        sizes = lists.list.len().cast(pl.Int64).to_numpy()
+        clean = columns[1].to_numpy() & (sizes > 0)
+        flat = lists.explode().to_numpy()  # an empty list: one missing value
+        starts = np.concatenate(([0], np.maximum(sizes, 1).cumsum()[:-1]))
+        with np.errstate(invalid="ignore"):
+            total = np.add.reduceat(flat, starts)
+        if mean:
+            total = total / np.maximum(sizes, 1)
+        if not clean.all():
+            total = np.where(clean, total, compensated(lists).to_numpy())
+        return pl.Series(total).fill_nan(None) if mean else pl.Series(total)
+
+    kind = pl.Float64 if floats else None
+    if sorted_within is None and in_key_order is None:
+        if floats:
+            return compensated(values)
+        return values.map_batches(lambda lists: add([lists]), return_dtype=kind)
+    missing = values.list.eval(pl.element().cast(pl.Float64).fill_nan(None).is_null()).list.any()
+    if in_key_order is not None:
+        clean = in_key_order & ~missing.any()
+    else:
+        clean = ~(missing.any().over(sorted_within) if sorted_within else missing.any())
+    return pl.map_batches([values, clean], add, return_dtype=kind)
+
+
+def pandas_to_datetime(text, coerce):
+    """pd.to_datetime(text) without format=, as pandas reads it: pandas guesses one
+    format from the first value (the first format below whose first pattern reads a
+    real date in it) and reads every value with it (the second pattern); a value it
+    does not fit is missing (coerce) or an error, as is a first value in none of
+    these formats. Each value is rewritten into one layout Polars reads."""
+    def read(layouts, strict):
+        return (layouts.str.replace_many(['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December', 'Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'],
+                                          ['1', '2', '3', '4', '5', '6', '7', '8', '9', '10', '11', '12', '1', '2', '3', '4', '5', '6', '7', '8', '9', '10', '11', '12'],
+                                          ascii_case_insensitive=True, leftmost=True)
+                .str.to_datetime('%Y/%m/%d %H:%M:%S%.f=', time_unit="us", strict=strict))
+
+    first = text.filter(~text.is_in(['', 'NaT', 'nat', 'NAT', 'nan', 'NaN', 'NAN', 'now', 'today'])).first()
+    if not coerce:  # pandas' texts for NaT are missing, not an error
+        text = text.replace(['', 'NaT', 'nat', 'NAT', 'nan', 'NaN', 'NAN'], None)
+    # blanks before or after the first value are part of pandas' format (' %Y-%m-%d'):
+    # every value needs a run of blanks there
+    bare, lead, trail = (~first.str.contains(r"^\s|\s$"), first.str.contains(r"^\s"),
+                         first.str.contains(r"\s$"))
+    first = first.str.strip_chars()
+
+    def blanks(pattern, front, back):
+        return pattern.replace("^(?:", "^(?:" + front, 1)[:-3] + back + ")|^"
+
+    guessed = [
+        pl.when(first.str.contains(selection)
+                & read(first.str.replace(pattern, layout), False).is_not_null())
+        .then(pl.when(bare).then(text.str.replace(pattern, layout))
+              .when(~trail).then(text.str.replace(blanks(pattern, r"\s+", ""), layout))
+              .when(~lead).then(text.str.replace(blanks(pattern, "", r"\s+"), layout))
+              .otherwise(text.str.replace(blanks(pattern, r"\s+", r"\s+"), layout)))
+        for selection, pattern, layout in [
+            # %Y-%m-%d
+            ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9])$',
+             '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^',
+             '${Y}/${m}/${d} 0:0:0='),
+            # %Y-%m-%d %H:%M
+            ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9]) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+             '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]))|^',
+             '${Y}/${m}/${d} ${H}:${M}:0='),
+            # %Y-%m-%d %H:%M:%S
+            ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9]) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+             '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]):(?P<S>6[0-1]|[0-5][0-9]|[0-9]))|^',
+             '${Y}/${m}/${d} ${H}:${M}:${S}='),
+            # %Y-%m-%d %H:%M:%S.%f
+            ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9]) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])\\.(?:[0-9]{1,6})$',
+             '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]):(?P<S>6[0-1]|[0-5][0-9]|[0-9])\\.(?P<f>[0-9]{1,9}))|^',
+             '${Y}/${m}/${d} ${H}:${M}:${S}.${f}='),
+            # %Y-%m-%dT%H:%M:%S
+            ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9])T(?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+             '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])T(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]):(?P<S>6[0-1]|[0-5][0-9]|[0-9]))|^',
+             '${Y}/${m}/${d} ${H}:${M}:${S}='),
+            # %Y-%m-%dT%H:%M:%S.%f
+            ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9])T(?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])\\.(?:[0-9]{1,6})$',
+             '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])T(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]):(?P<S>6[0-1]|[0-5][0-9]|[0-9])\\.(?P<f>[0-9]{1,9}))|^',
+             '${Y}/${m}/${d} ${H}:${M}:${S}.${f}='),
+            # %Y/%m/%d
+            ('^(?:[1-9][0-9]{3})/(?:1[0-2]|0[1-9]|[1-9])/(?:3[01]|[12][0-9]|0[1-9]|[1-9])$',
+             '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))/(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^',
+             '${Y}/${m}/${d} 0:0:0='),
+            # %Y%m%d
+            ('^(?:[1-9][0-9]{3})(?:1[0-2]|0[1-9])(?:3[01]|[12][0-9]|0[1-9])$',
+             '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))(?P<m>1[0-2]|0[1-9]|[1-9])(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^',
+             '${Y}/${m}/${d} 0:0:0='),
+            # %m/%d/%Y
+            ('^(?:1[0-2]|0[1-9]|[1-9])/(?:3[01]|[12][0-9]|0[1-9]|[1-9])/(?:[1-9][0-9]{3})$',
+             '(?i)^(?:(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])/(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+             '${Y}/${m}/${d} 0:0:0='),
+            # %d/%m/%Y
+            ('^(?:3[01]|[12][0-9]|0[1-9]|[1-9])/(?:1[0-2]|0[1-9]|[1-9])/(?:[1-9][0-9]{3})$',
+             '(?i)^(?:(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])/(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+             '${Y}/${m}/${d} 0:0:0='),
+            # %m/%d/%Y %H:%M
+            ('^(?:1[0-2]|0[1-9]|[1-9])/(?:3[01]|[12][0-9]|0[1-9]|[1-9])/(?:[1-9][0-9]{3}) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+             '(?i)^(?:(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])/(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]))|^',
+             '${Y}/${m}/${d} ${H}:${M}:0='),
+            # %d/%m/%Y %H:%M
+            ('^(?:3[01]|[12][0-9]|0[1-9]|[1-9])/(?:1[0-2]|0[1-9]|[1-9])/(?:[1-9][0-9]{3}) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+             '(?i)^(?:(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])/(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]))|^',
+             '${Y}/${m}/${d} ${H}:${M}:0='),
+            # %m/%d/%Y %H:%M:%S
+            ('^(?:1[0-2]|0[1-9]|[1-9])/(?:3[01]|[12][0-9]|0[1-9]|[1-9])/(?:[1-9][0-9]{3}) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+             '(?i)^(?:(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])/(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]):(?P<S>6[0-1]|[0-5][0-9]|[0-9]))|^',
+             '${Y}/${m}/${d} ${H}:${M}:${S}='),
+            # %d/%m/%Y %H:%M:%S
+            ('^(?:3[01]|[12][0-9]|0[1-9]|[1-9])/(?:1[0-2]|0[1-9]|[1-9])/(?:[1-9][0-9]{3}) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+             '(?i)^(?:(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])/(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]):(?P<S>6[0-1]|[0-5][0-9]|[0-9]))|^',
+             '${Y}/${m}/${d} ${H}:${M}:${S}='),
+            # %m.%d.%Y
+            ('^(?:1[0-2]|0[1-9]|[1-9])\\.(?:3[01]|[12][0-9]|0[1-9]|[1-9])\\.(?:[1-9][0-9]{3})$',
+             '(?i)^(?:(?P<m>1[0-2]|0[1-9]|[1-9])\\.(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\.(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+             '${Y}/${m}/${d} 0:0:0='),
+            # %d.%m.%Y
+            ('^(?:3[01]|[12][0-9]|0[1-9]|[1-9])\\.(?:1[0-2]|0[1-9]|[1-9])\\.(?:[1-9][0-9]{3})$',
+             '(?i)^(?:(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\.(?P<m>1[0-2]|0[1-9]|[1-9])\\.(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+             '${Y}/${m}/${d} 0:0:0='),
+            # %B %d, %Y
+            ('^(?:September|February|November|December|January|October|August|March|April|June|July|May) (?:3[01]|[12][0-9]|0[1-9]|[1-9]), (?:[1-9][0-9]{3})$',
+             '(?i)^(?:(?P<B>september|february|november|december|january|october|august|march|april|june|july|may)\\s+(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]),\\s+(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+             '${Y}/${B}/${d} 0:0:0='),
+            # %b %d, %Y
+            ('^(?:Jan|Feb|Mar|Apr|May|Jun|Jul|Aug|Sep|Oct|Nov|Dec) (?:3[01]|[12][0-9]|0[1-9]|[1-9]), (?:[1-9][0-9]{3})$',
+             '(?i)^(?:(?P<b>jan|feb|mar|apr|may|jun|jul|aug|sep|oct|nov|dec)\\s+(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]),\\s+(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+             '${Y}/${b}/${d} 0:0:0='),
+            # %d %B %Y
+            ('^(?:3[01]|[12][0-9]|0[1-9]|[1-9]) (?:September|February|November|December|January|October|August|March|April|June|July|May) (?:[1-9][0-9]{3})$',
+             '(?i)^(?:(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?P<B>september|february|november|december|january|october|august|march|april|june|july|may)\\s+(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+             '${Y}/${B}/${d} 0:0:0='),
+            # %d %b %Y
+            ('^(?:3[01]|[12][0-9]|0[1-9]|[1-9]) (?:Jan|Feb|Mar|Apr|May|Jun|Jul|Aug|Sep|Oct|Nov|Dec) (?:[1-9][0-9]{3})$',
+             '(?i)^(?:(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?P<b>jan|feb|mar|apr|may|jun|jul|aug|sep|oct|nov|dec)\\s+(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+             '${Y}/${b}/${d} 0:0:0='),
+        ]
+    ]
+    return read(pl.coalesce(guessed if coerce else [*guessed, text]), not coerce)
+
+
+# Datetime columns with a time zone as pandas' to_csv writes them: the time always, then the
+# offset (+01:00); no fraction of a second when none has one, milliseconds when they are enough.
+PANDAS_CSV_ZONED_DATETIMES = (
+    pl.when((pl.selectors.datetime(time_zone="*").dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%:z"))
+    .when((pl.selectors.datetime(time_zone="*").dt.microsecond() % 1000 == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.3f%:z"))
+    .otherwise(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.6f%:z"))
+)
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one, milliseconds when they are enough.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .when((pl.selectors.datetime().dt.microsecond() % 1000 == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.3f"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+# Duration columns as pandas' to_csv writes them: "2 days" when every value is a whole number
+# of days, else "-1 days +23:00:00", with microseconds when one value has them.
+PANDAS_CSV_DURATIONS = (
+    pl.when((pl.selectors.duration().dt.total_microseconds() % 86_400_000_000 == 0).all())
+    .then(
+        (pl.selectors.duration().dt.total_microseconds() // 86_400_000_000).cast(pl.String)
+        + " days"
+    )
+    .otherwise(
+        (pl.selectors.duration().dt.total_microseconds() // 86_400_000_000).cast(pl.String)
+        + pl.when(pl.selectors.duration().dt.total_microseconds() < 0)
+        .then(pl.lit(" days +"))
+        .otherwise(pl.lit(" days "))
+        + (pl.selectors.duration().dt.total_microseconds() % 86_400_000_000 // 3_600_000_000)
+        .cast(pl.String).str.zfill(2)
+        + ":"
+        + (pl.selectors.duration().dt.total_microseconds() % 3_600_000_000 // 60_000_000)
+        .cast(pl.String).str.zfill(2)
+        + ":"
+        + (pl.selectors.duration().dt.total_microseconds() % 60_000_000 // 1_000_000)
+        .cast(pl.String).str.zfill(2)
+        + pl.when((pl.selectors.duration().dt.total_microseconds() % 1_000_000 == 0).all())
+        .then(pl.lit(""))
+        .otherwise(
+            "." + (pl.selectors.duration().dt.total_microseconds() % 1_000_000)
+            .cast(pl.String).str.zfill(6)
+        )
+    )
+)
+
+
+# Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
+# writes 0.00005 and 1.5e-7; NaN as an empty field. Only values below 0.0001 (other than 0)
+# need the replacements, and only they are given them.
+def pandas_csv_floats(values):
+    text = values.fill_nan(None).cast(pl.String)
+    small = (values.abs() < 1e-4) & (values != 0)
+    if not small.any():
+        return text
+    repr_text = (
+        text.filter(small)
+        .str.replace(r"e-(\d)$", "e-0${1}")
+        .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
+        .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    )
+    return text.scatter(small.arg_true(), repr_text)
+
+
+PANDAS_CSV_FLOATS = pl.selectors.float().map_batches(
+    pandas_csv_floats, return_dtype=pl.String, is_elementwise=True,
+)
+
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
+man = (
+    pl.scan_csv(
+        "data/manifests.csv",
+        null_values=PANDAS_NA_VALUES + [],
+        infer_schema_length=None,
+    )
+    .with_columns(pandas_to_datetime(pl.col("sailed"), coerce=False))
+)
+man = man.collect().to_pandas()
+# TODO(porter): frame.labels: pandas code reads the row labels of `man` later, which are the
+#   original row numbers after a filter or sort: pandas makes it; to port it, keep the row number as
+#   a column (with_row_index) where the frame is read and use that column where the labels are read
+man.drop_duplicates(inplace=True)
+man["consignee"] = man["consignee"].str.strip().str.title()
+
+gaps = {}
+for name, values in man.items():
+    gaps[name] = int(values.isna().sum())
+print("missing per column:", gaps)
+
+man.sort_values(["sailing", "deck", "consignment"], inplace=True)
+man["weight_t"] = man["weight_t"].bfill()
+
+sailings = pl.scan_csv(
+    "data/sailings.csv",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
+)
+sailings = sailings.collect().to_pandas()
+# TODO(porter): frame.labels: pandas code reads the row labels of `sailings` later, which are the
+#   original row numbers after a filter or sort: pandas makes it; to port it, keep the row number as
+#   a column (with_row_index) where the frame is read and use that column where the labels are read
+sailings.drop_duplicates(subset=["sailing"], inplace=True)
+man = man.merge(sailings, on="sailing", how="left")
+# TODO(porter): frame.index: kept on pandas with the statement it is in
+# TODO(porter): frame.getitem.column: kept on pandas with the statement it is in
+# TODO(porter): frame.lookup: lookup on a frame whose column types porter does not know; for each
+#   row's own column: pl.when(pl.col("which") == c).then(pl.col(c)) for each candidate column c
+# TODO(porter): frame.setitem: a Series computed by pandas whose rows porter cannot match to the
+#   frame's (pandas aligns it on the index): the statement stays pandas
+man["rate"] = (lambda frame, rows, cols: pd.Series([frame.at[r, c] for r, c in zip(rows, cols)], dtype=object).infer_objects().to_numpy())(
+    man,
+    man.index,
+    man["deck"],
+)
+man = pl.from_pandas(man).lazy()
+man = man.with_columns(charge=(pl.col("weight_t") * pl.col("rate")).round(2))
+man = man.with_columns(fee=pl.col("fee").fill_null(pl.col("charge")))
+man = man.with_columns(
+    per_axle=pl.when(pl.col("axles") > 0)
+    .then((pl.col("fee") / pl.col("axles")).fill_nan(None))
+    .otherwise(None),
+)
+man = (
+    man
+    .with_columns(
+        per_tonne=(pl.col("fee") / pl.col("weight_t")).fill_nan(None).round(2),
+    )
+    .collect()
+    .lazy()
+)
+
+priced = man.select(
+    "consignment",
+    "sailing",
+    "route",
+    "deck",
+    "consignee",
+    "weight_t",
+    "fee",
+    "charge",
+    "per_axle",
+    "per_tonne",
+)
+(
+    priced
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_DURATIONS,
+        PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
+    )
+    .sink_csv("data/priced.csv")
+)
+
+takings = (
+    man
+    .with_columns(
+        pl.when(
+            pl.col("sailed").dt.truncate("1d") > pl.col("sailed").dt.truncate("1d").dt.month_end().dt.add_business_days(0, roll="backward"),
+        )
+        .then(
+            pl.col("sailed")
+            .dt.truncate("1d")
+            .dt.month_start()
+            .dt.offset_by("1mo")
+            .dt.month_end()
+            .dt.add_business_days(0, roll="backward"),
+        )
+        .otherwise(
+            pl.col("sailed")
+            .dt.truncate("1d")
+            .dt.month_end()
+            .dt.add_business_days(0, roll="backward"),
+        )
+        .alias("sailed"),
+    )
+    .drop_nulls("sailed")
+    .group_by("sailed")
+    .agg(pl.col("fee"), pl.col("weight_t"))
+    .with_columns(
+        pandas_group_sums(pl.col("fee"), floats=False, sorted_within=[]),
+        pandas_group_sums(pl.col("weight_t"), floats=False, sorted_within=[]),
+    )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
+    .pipe(
+        lambda binned: binned.select(pl.datetime_ranges(pl.col("sailed").min().dt.month_start(), pl.col("sailed").max().dt.month_start(), "1mo").explode().drop_nulls().dt.month_end().dt.add_business_days(0, roll="backward").alias("sailed")).join(binned, on="sailed", how="left", maintain_order="left"),
+    )
+    .with_columns(pl.col("fee").fill_null(0), pl.col("weight_t").fill_null(0))
+)
+(
+    takings
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_DURATIONS,
+        PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
+    )
+    .sink_csv("data/takings.csv")
+)
+
+heaviest = (
+    man
+    .with_row_index("_porter_row")
+    .with_columns(pl.len().over("deck").alias("_porter_size"))
+    .filter(pl.col("deck").is_not_null())
+    .sort(pl.col("weight_t"), descending=True, nulls_last=True, maintain_order=True)
+    .filter(pl.int_range(pl.len()).over("deck") < 2)
+    .sort(
+        [pl.when((pl.col("_porter_size") <= 2).all() & (pl.col("_porter_row").diff().over("deck").fill_null(1) > 0).all()).then(pl.col("_porter_row")), "deck"],
+        maintain_order=True,
+    )
+    .drop("_porter_row", "_porter_size")
+)
+heaviest = heaviest.select("deck", "consignment", "consignee", "weight_t", "fee")
+(
+    heaviest
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_DURATIONS,
+        PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
+    )
+    .sink_csv("data/heaviest.csv")
+)
+
+consignees = (
+    man
+    .drop_nulls(["consignee", "route"])
+    .group_by(["consignee", "route"])
+    .agg(
+        pl.col("consignment").count().cast(pl.Int64).alias("loads"),
+        pl.col("weight_t").alias("tonnes"),
+        pl.col("fee").alias("fees"),
+    )
+    .with_columns(
+        pandas_group_sums(pl.col("tonnes"), floats=False),
+        pandas_group_sums(pl.col("fees"), floats=False),
+    )
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
+    .sort(["consignee", "route"])
+    .sort(
+        ["fees", "consignee"],
+        descending=[True, False],
+        nulls_last=True,
+        maintain_order=True,
+    )
+)
+(
+    consignees
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_DURATIONS,
+        PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
+    )
+    .sink_csv("data/consignees.csv")
+)
