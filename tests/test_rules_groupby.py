@@ -61,7 +61,7 @@ PORTS = [
     pytest.param('r = df.groupby("shop").t.sum()', 'pl.col("t").str.join("")', id="text sum concatenates"),
     pytest.param('r = df["shop"].value_counts()', '.group_by("shop", maintain_order=True)',
                  id="value_counts ties in order of appearance"),
-    pytest.param("r = df.describe()", "pandas_quantile(pl.selectors.numeric(), 0.25)",
+    pytest.param("r = df.describe()", "pandas_percentiles(pl.selectors.numeric(), [0.25, 0.5, 0.75])",
                  id="describe linear percentiles"),
     pytest.param('r = df.groupby("shop")["qty"].agg(lambda s: s.max() - s.min())',
                  '(pl.col("qty").max() - pl.col("qty").min())', id="agg with a lambda"),
