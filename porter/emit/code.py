@@ -50,6 +50,12 @@ class Code:
             base, steps = f"({self.text})", ()
         return Code(base + "".join(steps) + step, ATOM, base, steps + (step,))
 
+    def without_last_step(self) -> Code:
+        """A chain without its last step (its base alone when that was the only one)."""
+        assert self.base is not None and self.steps
+        steps = self.steps[:-1]
+        return Code(self.base + "".join(steps), ATOM, self.base, steps) if steps else Code(self.base)
+
     def attr(self, name: str) -> Code:
         return Code(f"{self.wrapped(ATOM)}.{name}")
 

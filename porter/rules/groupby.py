@@ -3627,8 +3627,7 @@ def _keys_present_of(keys: list[str]) -> Code:
 def _recast(code: Code, target: str) -> Code:
     """`code` cast to `target`, in place of a cast it ends with (a count's Int64)."""
     if code.base is not None and code.steps and code.steps[-1].startswith(".cast("):
-        code = Code(code.base + "".join(code.steps[:-1]), code.prec, code.base, code.steps[:-1]) \
-            if len(code.steps) > 1 else Code(code.base)
+        code = code.without_last_step()
     return code.method("cast", emit.atom(target))
 
 

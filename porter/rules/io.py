@@ -22,7 +22,7 @@ from porter.rules.io_options import (CSV_DATETIMES_CONSTANT, CSV_DURATIONS_CONST
                                      POLARS_CSV_COMPRESSION, compression_of, is_number, is_url,
                                      na_value_numbers, na_value_texts,
                                      written_compression)
-from porter.analysis.schema import PADDING, PANDAS_FALSE, PANDAS_TRUE, WHITESPACE_SEPARATOR
+from porter.analysis.schema import PADDING, PANDAS_FALSE, PANDAS_TRUE, WHITESPACE_SEPARATOR, WORDS
 from porter.rules.datetimes import GUESS_DAYFIRST_REASON, GUESS_REASON, Strptime, formatted_parse, guessed_parse, strptime_port
 from porter.rules.strings import LIST_STR, list_repr
 from porter.rules.ops import MASKED_DTYPES
@@ -800,8 +800,9 @@ def _scan_words(source: Code, names: list[str]) -> Code:
                     .attr("struct").method("unnest")))
 
 
-# a field of a file read with sep=r"\s+": what lies between runs of spaces and tabs
-WORD_PATTERN = 'r"[^ \\t]+"'
+# a field of a file read with sep=r"\s+": what lies between runs of spaces and tabs (the
+# schema reader splits the sample with the same pattern)
+WORD_PATTERN = f'r"{WORDS.pattern}"'
 
 
 def _numbers_missing(code: Code, numbers: list[float], dtypes: dict[str, str] | None,

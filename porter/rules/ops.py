@@ -135,8 +135,7 @@ def _without_last_sort(code: Code, key: str) -> Code:
     """A plan without its last step when that step is a plain sort by `key`."""
     if code.base is None or not code.steps or code.steps[-1] != f".sort({emit.render(key)})":
         return code
-    steps = code.steps[:-1]
-    return Code(code.base + "".join(steps), emit.ATOM, code.base, steps) if steps else emit.atom(code.base)
+    return code.without_last_step()
 
 
 @rule("series.arith")

@@ -33,7 +33,7 @@ from porter.translate.context import (
     PandasCall, Unsupported, expr_in, grouping_code, labelled_frame, select_columns, value_dtype,
     with_column_updates, with_row_labels,
 )
-from porter.translate.evaluate import Evaluator, Services, parts_current
+from porter.translate.evaluate import Evaluator, Services, chain_receivers, parts_current
 from porter.translate.values import (
     MISSING, Accessor, Column, Frame, Grouped, Indexed, Module, Opaque, PandasValue, Parts, Scalar, Value,
     fresh_token, is_pandas,
@@ -106,12 +106,13 @@ def translate_module(module: cst.Module, services: Services) -> Translation:
     services.label_free_loops = label_free_loops(module)
     services.name_lines = {name: [positions[n].start.line for n in nodes]
                            for name, nodes in _name_nodes(module).items()}
-    changes = changes_in_place(module)
-    services.changed_in_place = {name: [position(n)[0] for n in nodes] for name, nodes in changes.items()}
-    # where each change starts, to order it against statements sharing its line (`a = x; a["c"] = y`)
+    # where each change starts (line, column): its line says whether it comes after a statement,
+    # its column orders it against statements sharing that line (`a = x; a["c"] = y`)
     services.changed_at = {name: [(p.start.line, p.start.column) for n in nodes
                                   if (p := positions.get(n)) is not None]
-                           for name, nodes in changes.items()}
+                           for name, nodes in changes_in_place(module).items()}
+    services.changed_in_place = {name: [line for line, _ in starts]
+                                 for name, starts in services.changed_at.items()}
     services.position = position
     services.start = lambda node: (p.start.line, p.start.column) if (p := positions.get(node)) else None
     services.glued = glued
@@ -1902,18 +1903,8 @@ class _Walker:
         (`pd.read_csv(...).sort_values("v")`): the frame the chain starts from (the innermost
         receiver that is a frame porter tracks with its labels still 0..n-1) is given its row
         numbers as a column there."""
-        receivers: list[cst.BaseExpression] = []
-        node: cst.BaseExpression = expr
-        while True:
-            if isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute):
-                node = node.func.value
-            elif isinstance(node, (cst.Attribute, cst.Subscript)):
-                node = node.value
-            else:
-                break
-            receivers.append(node)
         evaluator = Evaluator(env, self.services)
-        for receiver in reversed(receivers):  # the innermost first: where the frame is made
+        for receiver in reversed(chain_receivers(expr)):  # the innermost first: where the frame is made
             if not isinstance(receiver, cst.Call):
                 continue
             frame = evaluator.eval(receiver)

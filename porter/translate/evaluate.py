@@ -396,9 +396,13 @@ class Evaluator:
         return derived_column(columns[0], code, dtype="str", others=columns[1:], name=None) \
             .with_sites(*(x for p in parts for x in p.sites))
 
+    def dask_script(self) -> bool:
+        """Whether the script imports dask.dataframe."""
+        return any(isinstance(v, Module) and v.qualname == "dask" for v in self.env.values())
+
     def dask_compute_key(self, receiver: Value, name: str) -> str | None:
         """`x.compute()` / `x.persist()` in a script that imports dask.dataframe: Dask's."""
-        if not any(isinstance(v, Module) and v.qualname == "dask" for v in self.env.values()):
+        if not self.dask_script():
             return None
         if isinstance(receiver, Frame):
             return f"dd.frame.{name}"
@@ -1188,7 +1192,7 @@ class Evaluator:
         if key in ("frame.to_csv", "series.to_csv", "frame.to_parquet") and call.args \
                 and isinstance(call.args[0], Opaque) and isinstance(call.args[0].const, str) \
                 and "*" in call.args[0].const \
-                and any(isinstance(v, Module) and v.qualname == "dask" for v in self.env.values()):
+                and self.dask_script():
             # a Dask frame porter lost track of: Dask writes one file per partition, numbering
             # the `*`; pandas would write one file under that very name
             return self.todo(key, call, node, "in a Dask script a `*` in the name writes one "
@@ -1408,8 +1412,8 @@ class Evaluator:
         None when it starts from no pandas object or nothing changes."""
         if not isinstance(node, (cst.Call, cst.Attribute, cst.Subscript)):
             return None
-        base = _chain_base(node)
-        if base is node or not isinstance(self.eval(base), PandasValue):
+        receivers = chain_receivers(node)
+        if not receivers or not isinstance(self.eval(receivers[-1]), PandasValue):
             return None
         from porter.rules.legacy import written_for_older_pandas
         modern = handover.modern_chain(
@@ -1447,18 +1451,21 @@ def _values_array(value: Value, library_name: str, reads_labels: bool, whole: Co
     return isinstance(value, Column) and library_name in ("matplotlib", "sklearn") \
         and not reads_labels and whole is None and value.dtype in ("int", "float") \
         and not value.nullable_int and not value.null_is_false and not value.frame.index \
-        and not value.index_values and getattr(value, "pandas", None) is None
+        and not value.index_values
 
 
-def _chain_base(node: cst.BaseExpression) -> cst.BaseExpression:
-    """The object a chain of calls, attributes and subscripts starts from."""
+def chain_receivers(node: cst.BaseExpression) -> list[cst.BaseExpression]:
+    """The receivers along a chain of calls, attributes and subscripts, the outermost first:
+    the last is the object the chain starts from (`df.a.sum()`: df.a, df)."""
+    receivers: list[cst.BaseExpression] = []
     while True:
         if isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute):
             node = node.func.value
         elif isinstance(node, (cst.Attribute, cst.Subscript)):
             node = node.value
         else:
-            return node
+            return receivers
+        receivers.append(node)
 
 
 def _model_array(node: cst.BaseExpression) -> bool:
