@@ -3396,12 +3396,18 @@ class _BodyReader:
             raise Unsupported(f"the function takes the {how} of the {dtype} column "
                               f"`{column.code.text}`: pandas keeps such values in an object "
                               "Series")
-        if how in ("sum", "mean", "std", "var") and dtype in ("float", None):
-            # pandas calls Series.sum on each group's values: numpy's pairwise sum, where
-            # Polars adds them in another order (4285.299999999999 for 4285.3)
-            self.ctx.lower(f"the {how} of a group's floats: pandas adds them with numpy's "
-                           "pairwise sum, Polars in another order, so the last digit can "
-                           "differ", 0.95)
+        if how in ("sum", "mean", "std", "var") and dtype == "float" \
+                or how in ("mean", "std", "var") and dtype == "int":
+            # pandas calls Series.sum (mean, std, var) on each group's values: numpy's
+            # pairwise sum, where Polars adds them in another order (4285.299999999999 for
+            # 4285.3); pandas_reduce adds them with numpy, one group at a time, and the
+            # mean of no values is missing
+            total = pandas_reduce(code, how)
+            return _Agg(total if how == "sum" else total.method("fill_nan", None), _FLOAT)
+        if how in ("sum", "mean", "std", "var") and dtype is None:
+            self.ctx.lower(f"the {how} of a group's values of a type porter does not know: "
+                           "pandas adds floats with numpy's pairwise sum, Polars in another "
+                           "order, so the last digit can differ", 0.95)
         if how in ("mean", "median", "std", "var"):
             return _Agg(code.method(how), _FLOAT)
         if dtype == "bool":
