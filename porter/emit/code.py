@@ -321,12 +321,19 @@ def _split_argument(arg: str, indent: str, width: int, min_steps: int = 2) -> li
     """One argument of a call laid out one per line: a chain too long for its line is broken
     before each step (inside the call's brackets no extra parentheses are needed); a chain
     on a plain name (`df.select(...)`) is broken when it has `min_steps` calls after the first."""
+    parsed = _one_argument(arg) if arg.count(".collect()") > 1 or len(indent) + len(arg) + 1 > width \
+        else None
+    pieces = _fstring_pieces(parsed, width - len(indent)) if parsed is not None else None
+    if pieces is not None:  # f"{a.collect()} and {b.collect()}": one f-string per line
+        return [*(f"{indent}{piece}" for piece in pieces[:-1]), f"{indent}{pieces[-1]},"]
     if len(indent) + len(arg) + 1 <= width:
         split = _split_operation(f"({arg})", "") if arg.count(".collect()") > 1 else None
         if split is not None:  # two plans run in one operation: one operand per line
             return [*(indent + line for line in split.splitlines()[:-1]), f"{indent}),"]
+        items = _list_items(arg) if arg.count(".collect()") > 1 else None
+        if items is not None:  # [a.collect(), b.collect()]: one item per line
+            return [f"{indent}[", *(f"{indent}    {item}," for item in items), f"{indent}],"]
         return [f"{indent}{arg},"]
-    parsed = _one_argument(arg)
     entries = _dict_parts(parsed) if parsed is not None else None
     if entries is not None:
         head, items = entries
@@ -365,6 +372,32 @@ def _split_argument(arg: str, indent: str, width: int, min_steps: int = 2) -> li
             lines += _split_argument(arg, indent + "    ", width)
         lines.append(f"{indent}){end}")
     return lines
+
+
+def _fstring_pieces(arg: Any, width: int) -> list[str] | None:
+    """An f-string argument too long for its line, or running two plans (`f"{a.collect()} and
+    {b.collect()}"`), as f-strings Python joins (one literal written in pieces): a piece ends
+    before a value that would make it too long or run a second plan. None for anything else."""
+    import libcst as cst
+
+    node = arg.value
+    if arg.keyword is not None or arg.star or not isinstance(node, cst.FormattedString) \
+            or node.lpar or len(node.parts) < 2 or len(node.end) != 1:
+        return None
+    module = cst.Module([])
+    start, end = node.start, node.end
+    pieces: list[list[str]] = [[]]
+    for part in node.parts:
+        text = module.code_for_node(part)
+        current = "".join(pieces[-1])
+        plans = current.count(".collect()") + text.count(".collect()")
+        if pieces[-1] and isinstance(part, cst.FormattedStringExpression) \
+                and (plans > 1 or len(start) + len(current) + len(text) + len(end) > width):
+            pieces.append([])
+        pieces[-1].append(text)
+    if len(pieces) < 2:
+        return None
+    return [f"{start}{''.join(piece)}{end}" for piece in pieces]
 
 
 def _comprehension_lines(arg: Any, indent: str, width: int) -> list[str] | None:
