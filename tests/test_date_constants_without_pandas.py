@@ -83,3 +83,21 @@ def test_a_constant_beside_a_python_value_of_a_plan_stays_a_timestamp(tmp_path: 
                      'shifts.to_csv("out.csv", index=False)\n',
                      tmp_path, {"shifts.csv": SHIFTS}).converted_text
     assert 'SEASON_START = pd.Timestamp("2024-11-15")' in text, text
+
+
+def test_to_datetime_of_one_text_is_the_same_constant(tmp_path: Path) -> None:
+    # pd.to_datetime("2024-11-15") is the Timestamp pd.Timestamp reads from the same text
+    text = same_text('import pandas as pd\n\nSEASON_START = pd.to_datetime("2024-11-15")\n'
+                     'LATE = pd.Timedelta(hours=20, minutes=30)\n' + BODY,
+                     tmp_path, {"shifts.csv": SHIFTS}).converted_text
+    assert "import pandas" not in text, text
+    assert "SEASON_START = datetime.datetime(2024, 11, 15)" in text
+
+
+def test_to_datetime_with_options_stays_pandas(tmp_path: Path) -> None:
+    # dayfirst=True reads 01/02/2024 as the first of February, where pd.Timestamp reads January:
+    # only the call without options is written as Python's datetime
+    text = same_text('import pandas as pd\n\nSEASON_START = pd.to_datetime("15/11/2024", dayfirst=True)\n'
+                     'LATE = pd.Timedelta(hours=20, minutes=30)\n' + BODY,
+                     tmp_path, {"shifts.csv": SHIFTS}).converted_text
+    assert "datetime.datetime(" not in text, text
