@@ -320,6 +320,18 @@ def set_index(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(frame, Frame)
     ctx.reject_unknown(call, "keys", "drop", "append", "verify_integrity", positional=1)
     key = call.const("keys", 0, None)
+    named = [key] if isinstance(key, str) else key if isinstance(key, list) else []
+    if frame.index and call.const("append", None, False) is False and frame.columns is not None \
+            and all(isinstance(k, str) and k not in frame.index for k in named):
+        # the new labels replace the index (the row labels a filter or sort left, a groupby's
+        # keys), which pandas drops: the columns holding it go
+        frame = replace(frame, code=frame.code.method("drop", *frame.index), index=(),
+                        index_unnamed=False,
+                        columns=tuple(c for c in frame.columns if c not in frame.index),
+                        dtypes=tuple((c, t) for c, t in frame.dtypes if c not in frame.index),
+                        float_ints=tuple(m for m in frame.float_ints if m[0] not in frame.index),
+                        grouped_rows=None, sorted_rows=None, levels_as_met=False,
+                        levels_with_missing=False)
     if isinstance(key, list) and len(key) > 1 and all(isinstance(k, str) for k in key) \
             and len(set(key)) == len(key) and call.const("drop", None, True) is True \
             and call.const("append", None, False) is False \

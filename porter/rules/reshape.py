@@ -7,6 +7,7 @@ new columns on the collected DataFrame, then go back to lazy.
 
 from __future__ import annotations
 
+from dataclasses import replace
 from typing import Any
 
 import numpy as np
@@ -430,11 +431,20 @@ def melt(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("col_level (two levels of column labels)")
     if call.const("ignore_index", None, True, kinds=(bool,)) is not True:
         raise Unsupported("ignore_index=False repeats the row labels")
-    if frame.index:
-        raise Unsupported("the frame has an index (pandas leaves it out of the values): call "
-                          "reset_index() first")
     id_vars = _names_or_none(call, "id_vars", 0 + offset) or []
     value_vars = _names_or_none(call, "value_vars", 1 + offset)
+    if frame.index:
+        # pandas melts the columns and leaves the index out (the labels of a groupby's keys,
+        # or the row labels a filter or sort left): the columns holding it are not melted
+        if frame.columns is None:
+            raise Unsupported("the frame has an index (pandas leaves it out of the values) and "
+                              "porter does not know its columns: call reset_index() first")
+        named = [c for c in (*id_vars, *(value_vars or ())) if c in frame.index]
+        if named:
+            raise Unsupported(f"{named} name the frame's index, not a column (pandas raises "
+                              "KeyError): call reset_index() first")
+        frame = replace(frame, columns=tuple(c for c in frame.columns if c not in frame.index),
+                        index=())
     var_name = call.const("var_name", 2 + offset, None, kinds=(str,))
     if var_name is None and frame.columns_name is not None:
         # a pivoted table (pivot_table, crosstab, unstack; reset_index keeps it): pandas names

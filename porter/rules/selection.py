@@ -1565,8 +1565,8 @@ def explode(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.reject_unknown(call, "column", "ignore_index", positional=2)
     names = column_names(call.const("column", 0), "explode's columns")
     ignore_index = call.const("ignore_index", 1, False, kinds=(bool,))
-    if frame.index:
-        raise Unsupported("a frame with an index porter keeps as columns")
+    if set(names) & set(frame.index):
+        raise Unsupported("a name of the frame's index, not a column (pandas raises KeyError)")
     dtypes = dict(frame.dtypes)
     for name in names:
         if frame.columns is not None and name not in frame.columns:
@@ -1582,6 +1582,15 @@ def explode(call: PandasCall, ctx: RuleContext) -> Value:
             dtypes[name] = kind[len("list["):-1]
     code = frame.code.method("explode", emit.names_arg(names), empty_as_null=True,
                              keep_nulls=True)
+    if frame.index and ignore_index:
+        # the labels renumbered 0..n-1: the columns holding the index (row labels a filter or
+        # sort left, a groupby's keys) go; without ignore_index each row's go with its values
+        code = code.method("drop", *frame.index)
+        dtypes = {c: t for c, t in dtypes.items() if c not in frame.index}
+        return derive(frame, code, same_rows=False, labels_intact=True, index=(),
+                      index_unnamed=False, dtypes=tuple(dtypes.items()),
+                      columns=None if frame.columns is None else
+                      tuple(c for c in frame.columns if c not in frame.index))
     return derive(frame, code, same_rows=False, labels_intact=bool(ignore_index),
                   dtypes=tuple(dtypes.items()))
 
