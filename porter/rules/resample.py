@@ -389,6 +389,34 @@ def indexed_resample(call: PandasCall, ctx: RuleContext) -> Value:
                      freq=bins.freq, fill=True)
 
 
+@rule("series.resample")
+def series_resample(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.set_index("ts")["kg"].resample(rule) -> as df.resample(rule, on="ts")["kg"]: a column
+    of a table labelled by one datetime column (set_index, read_csv(index_col=)), resampled
+    on its labels.
+
+    Caveats: a Series labelled otherwise (0..n-1, several keys, a groupby's keys of another
+    type), or computed rather than taken from the table, is a TODO.
+    """
+    column = call.receiver
+    assert isinstance(column, Column)
+    ctx.reject_unknown(call, "rule", "closed", "label", "origin", positional=1)
+    frame = column.frame
+    if len(frame.index) != 1 or frame.index_unnamed or frame.dtype(frame.index[0]) != "datetime":
+        raise ctx.todo("a Series not labelled by one datetime column (set_index(\"ts\") first)")
+    key = frame.index[0]
+    name = column.name
+    if not isinstance(name, str) or name == key or column.code.text != emit.col(name).text \
+            or column.element or (frame.columns is not None and name not in frame.columns):
+        raise ctx.todo("a Series computed from the table, not one of its columns")
+    _not_periods(frame, key, ctx)
+    bins = _bins_checked(call, ctx)
+    plain = replace(frame, index=(), index_unnamed=False, labels_intact=False)
+    pandas = handover.to_pandas(column).method("resample", bins.freq, **_options(call))
+    return Resampled(pandas, frame=plain, keys=(key,), time=key, freq=bins.freq, fill=True,
+                     selection=(name,), single=True)
+
+
 @rule("indexed.groupby")
 def indexed_groupby(call: PandasCall, ctx: RuleContext) -> Value:
     """df.set_index("ts").groupby(keys) -> the groups, waiting for resample(rule)."""
