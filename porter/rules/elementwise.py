@@ -1050,6 +1050,37 @@ def _number_kinds(values: Sequence[object]) -> set[str]:
     return kinds
 
 
+@rule("series.cat.codes")
+def cat_codes(call: PandasCall, ctx: RuleContext) -> Value:
+    """s.cat.codes -> each value's position among the categories, -1 where it is missing.
+
+    Handles: a column made a category in the same expression (s.astype("category").cat.codes):
+    pandas' categories are its distinct texts sorted (a dense rank of the text, less one); an
+    Enum (pd.cut's labels, ordered categories): the position of its label (to_physical).
+    Caveats: pandas' codes are int8 (int16 beyond 127 categories), Int64 here: the same values
+    (0.95). A category column made in an earlier statement (its categories may be those of rows
+    a filter has since left out) is a TODO.
+    """
+    accessor = call.receiver
+    column = accessor.column  # type: ignore[attr-defined]
+    assert isinstance(column, Column)
+    code = column.code
+    if column.dtype == "enum":
+        codes = code.method("to_physical").method("cast", emit.atom("pl.Int64"))
+    elif column.dtype == "category" and code.text.endswith(".cast(pl.Categorical)") \
+            and not column.element:
+        text = Code(code.text[:-len(".cast(pl.Categorical)")])
+        codes = emit.binop(text.method("rank", "dense").method("cast", emit.atom("pl.Int64")),
+                           "-", 1)
+    else:
+        raise Unsupported("the codes of a category column made in an earlier statement (its "
+                          "categories can be those of rows a filter has left out) or of a "
+                          "column porter does not know to be one")
+    ctx.lower("pandas' codes are int8 (int16 beyond 127 categories), Int64 here: the same "
+              "values", 0.95)
+    return derived_column(column, codes.method("fill_null", -1), dtype="int", name=column.name)
+
+
 @rule("pd.cut")
 def cut(call: PandasCall, ctx: RuleContext) -> Value:
     """pd.cut(s, bins=[edges], labels=[...]) -> pl.when(in bin 1).then(label 1)... as pl.Enum.

@@ -491,7 +491,7 @@ class Evaluator:
             return Indexer(Code(self.source(node)), frame=receiver.frame, kind=name,
                            column=receiver, sites=receiver.sites)
         if isinstance(receiver, Column):
-            if name in ("str", "dt"):
+            if name in ("str", "dt", "cat"):
                 return Accessor(Code(self.source(node)), column=receiver, kind=name,
                                 sites=receiver.sites)
             if name in pandas_names.SERIES and name not in _SERIES_PROPERTIES \
@@ -535,6 +535,8 @@ class Evaluator:
                                  name=None if receiver.index_of.index_unnamed
                                  else receiver.index_of.index[0])
                 return self.dispatch("series.name", PandasCall(labels, name, node=node), node)
+            if receiver.kind == "cat" and name == "codes":  # a property
+                return self.dispatch("series.cat.codes", PandasCall(receiver, name, node=node), node)
             if receiver.kind == "dt" and name in _DT_PROPERTIES:
                 return self.dispatch(f"series.dt.{name}", PandasCall(receiver, name, node=node), node)
             if receiver.kind == "dt" and name in _PERIOD_METHODS:  # of s.dt.to_period(...)
