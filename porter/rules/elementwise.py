@@ -514,8 +514,50 @@ def map_(call: PandasCall, ctx: RuleContext) -> Value:
         if call.const("na_action", None, None) == "ignore":
             return replace(result, code=emit.when(column.code.method("is_not_null"), result.code))
         return result
+    template = _format_template(function)
+    if template is not None:
+        return _formatted_values(column, template, call.const("na_action", None, None) == "ignore",
+                                 ctx)
     raise Unsupported("a named function porter cannot read: write its body as a lambda or as "
                       "column expressions")
+
+
+def _format_template(function: Value) -> str | None:
+    """The text of `"{:.1f} kg".format` passed as the function (s.map("{:.1f} kg".format))."""
+    node = function.node if isinstance(function, Opaque) else None
+    if not (isinstance(node, cst.Attribute) and node.attr.value == "format"
+            and isinstance(node.value, (cst.SimpleString, cst.ConcatenatedString))):
+        return None
+    text = node.value.evaluated_value
+    return text if isinstance(text, str) else None
+
+
+def _formatted_values(column: Column, template: str, skip_missing: bool,
+                      ctx: RuleContext) -> Column:
+    """s.map("{:.1f} kg".format): Python's str.format on each value, as pandas calls it on each
+    (map_elements; for text, once per distinct text), a missing value passed as NaN ("nan")."""
+    if column.dtype not in ("str", "float"):
+        kind = f"the {column.dtype} column" if column.dtype else "a column of unknown type"
+        raise Unsupported(f"str.format of {kind}: pandas "
+                          "passes numpy values (an int column with a missing value as floats), "
+                          "whose text porter cannot tell from Polars' values")
+    if "!r" in template or "!a" in template:
+        raise Unsupported("!r in the format: numpy's repr of a value (np.float64(1.5)) is not "
+                          "Python's")
+    formatter = emit.atom(f"{emit.render(template)}.format")
+    ctx.runs_function = True
+    if column.dtype == "str":
+        code = emit.call(DISTINCT_FUNCTION, column.code, formatter, emit.atom("pl.String"),
+                         **({"skip_nulls": True} if skip_missing else {}))
+    elif skip_missing:  # na_action="ignore": pandas leaves a missing value missing
+        code = column.code.method("fill_nan", None).method(
+            "map_elements", formatter, return_dtype=emit.atom("pl.String"))
+    else:
+        code = column.code.method("fill_nan", None).method(
+            "map_elements", emit.atom(f'lambda value: {formatter.text}(float("nan") if value is '
+                                      'None else value)'),
+            return_dtype=emit.atom("pl.String"), skip_nulls=False)
+    return derived_column(column, code, name=column.name, dtype="str")
 
 
 def _map_by_labels(call: PandasCall, column: Column, mapper: Column, ctx: RuleContext) -> Value:
