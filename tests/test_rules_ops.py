@@ -75,7 +75,7 @@ def test_ports(before: str, expected: str) -> None:
 
 
 TODOS = [
-    pytest.param('df["r"] = df["a"].round(-1)', "series.round", id="round to tens"),
+    pytest.param('r = df.round(-1)', "frame.round", id="a frame rounded to tens"),
     pytest.param('df["r"] = df["a"].clip(df["b"], 5)', "series.clip", id="clip with per-row bounds"),
     pytest.param('r = df * 2', "frame.arith", id="arithmetic on a whole frame"),
     pytest.param('r = np.where(df["a"] > 0)', "np.where", id="np.where with one argument"),

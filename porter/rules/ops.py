@@ -913,9 +913,23 @@ def round_(call: PandasCall, ctx: RuleContext) -> Value:
     """
     ctx.reject_unknown(call, "decimals", positional=1)
     decimals = call.const("decimals", 0, 0)
-    if not isinstance(decimals, int) or decimals < 0:
-        raise Unsupported("rounding to tens or hundreds (negative decimals)")
     receiver = call.receiver
+    if isinstance(decimals, int) and not isinstance(decimals, bool) and decimals < 0 \
+            and isinstance(receiver, Column) and receiver.dtype in ("int", "float") \
+            and "Float32" not in receiver.code.text and not float32_possible(ctx):
+        # numpy's round to tens or hundreds: the value over 10**-n rounded half to even
+        # (rint), times 10**-n, in float64; an int column is made int again (149 -> 100)
+        scale = 10 ** -decimals
+        code = emit.binop(emit.binop(receiver.code, "/", scale).method("round", 0), "*", scale)
+        if receiver.dtype == "int":
+            code = code.method("cast", emit.atom("pl.Int64"))
+        else:
+            ctx.lower("a computed float on a half can round the other way (floats are added in "
+                      "another order)", 0.98)
+        return derived_column(receiver, code, dtype=receiver.dtype)
+    if not isinstance(decimals, int) or decimals < 0:
+        raise Unsupported("rounding to tens or hundreds (negative decimals) of a frame or of a "
+                          "column whose type porter does not know")
     if not (isinstance(receiver, Column) and receiver.dtype == "int"):
         ctx.lower("a computed float on a decimal half can round the other way (floats are added "
                   "in another order)", 0.98)
