@@ -815,6 +815,8 @@ def join_parts(call: PandasCall, ctx: RuleContext) -> Value:
                       labels_intact=False)
     if isinstance(other, Frame) and not call.has("on"):
         return _join_on_index(frame, other, call, ctx, advice)
+    if isinstance(other, Frame):
+        return _join_on_column(frame, other, call, ctx, advice)
     if not isinstance(other, Parts) or call.has("on"):
         raise ctx.todo(advice)
     if not frame.labels_intact or frame.index:
@@ -834,6 +836,62 @@ def join_parts(call: PandasCall, ctx: RuleContext) -> Value:
     return set_nullable_ints(
         with_columns(frame, [(n, *value_expr(c, frame, ctx)) for n, c in zip(names, columns)]),
         {n: c.nullable_int or NOT_NULLABLE for n, c in zip(names, columns)})
+
+
+def _join_on_column(frame: Frame, other: Frame, call: PandasCall, ctx: RuleContext,
+                    advice: str) -> Value:
+    """df.join(other, on="k") of a frame labelled by its key (other.set_index("k"),
+    read_csv(index_col="k"), a groupby's keys) -> LazyFrame.join of df's column k on other's
+    key, how="left" or "inner".
+
+    pandas matches each row's value of the column to the other frame's labels: the left's
+    rows in their order, each with the right rows of its label in theirs (a label repeated
+    there repeats the row), a missing value matching a missing label; the left keeps its own
+    row labels (which then repeat), and the other frame's key is not added. An int column of
+    the right frame is float64 in pandas where a left row found no label."""
+    on = call.const("on", 1, None)
+    names = [on] if isinstance(on, str) else on
+    how = call.const("how", 2, "left", kinds=(str,))
+    if not (isinstance(names, list) and names and all(isinstance(n, str) for n in names)):
+        raise ctx.todo("on= other than column names: " + advice)
+    if how not in ("left", "inner"):
+        raise ctx.todo(f"how={how!r} with on=: " + advice)
+    if call.const("sort", 5, False) is not False or call.has("validate") \
+            or call.has("lsuffix") or call.has("rsuffix"):
+        raise ctx.todo("sort, validate or suffixes: " + advice)
+    keys = other.index
+    if len(keys) != len(names) or other.index_unnamed or other.columns is None \
+            or frame.columns is None or any(n not in frame.columns or n in frame.index
+                                            for n in names):
+        raise ctx.todo("on= needs the other frame labelled by as many named keys, and columns "
+                       "of both frames that porter knows: " + advice)
+    for name, key in zip(names, keys):
+        kinds = (frame.dtype(name), other.dtype(key))
+        if None in kinds or kinds[0] != kinds[1]:
+            raise ctx.todo("a column and labels of different or unknown types (Polars joins "
+                           "only keys of one type): " + advice)
+    right_columns = [c for c in other.columns if c not in keys]
+    if set(right_columns) & set(frame.columns):
+        raise ctx.todo("columns of both frames share a name (pandas raises without "
+                       "lsuffix/rsuffix): " + advice)
+    right = other.code.method("select", *(emit.col(k).method("alias", n) if k != n else k
+                                          for k, n in zip(keys, names)), *right_columns)
+    code = frame.code.method("join", right, on=emit.names_arg(names), how=how,
+                             nulls_equal=True, maintain_order="left_right")
+    dtypes = {**{c: t for c, t in other.dtypes if c in right_columns}, **dict(frame.dtypes)}
+    ints = [c for c in right_columns if other.dtype(c) == "int"] if how == "left" else []
+    if ints:
+        code = floats_where_missing(code, ints)
+        dtypes = {c: t for c, t in dtypes.items() if c not in ints}
+    columns = (*frame.columns, *right_columns)
+    # the other frame's labels all different (a groupby's result): a left join keeps each row
+    # once, in its place, and its label
+    distinct = other.grouped_rows is not None and other.grouped_rows == other.rows
+    return derive(frame, code, same_rows=how == "left" and distinct, columns=columns,
+                  dtypes=tuple((c, dtypes[c]) for c in columns if c in dtypes),
+                  versions=tuple((c, v) for c, v in frame.versions)
+                  + tuple((c, fresh_token()) for c in right_columns),
+                  float_ints=frame.float_ints, grouped_rows=None, sorted_rows=None)
 
 
 def _join_on_index(frame: Frame, other: Frame, call: PandasCall, ctx: RuleContext,
