@@ -40,6 +40,15 @@ def column_by_key(frame: Frame, key: Value, ctx: RuleContext) -> Column:
         name = key.const
         code = emit.col(key.code if key.code.text != emit.lit(name).text else name)
         return column_of(frame, name, code)
+    if isinstance(key, Opaque) and isinstance(key.const, int) and not isinstance(key.const, bool) \
+            and frame.int_labels_except is not None \
+            and str(key.const) not in frame.int_labels_except:
+        # pv[2024] of a table pivoted on an integer key: pandas labels the column with the
+        # key's value, Polars names it as text ("2024")
+        name = str(key.const)
+        if frame.columns is not None and name not in frame.columns:
+            raise Unsupported(f"column {key.const!r} is not in the frame (pandas raises KeyError)")
+        return column_of(frame, name, emit.col(name))
     if isinstance(key, Opaque) and not key.is_const and key.node is None or (
             isinstance(key, Opaque) and isinstance(key.node, cst.Name)):
         if key.pytype != "str":
