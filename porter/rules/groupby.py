@@ -2279,6 +2279,29 @@ def group_describe(call: PandasCall, ctx: RuleContext) -> Value:
     return aggregate(grouped, exprs, names, ctx, dtypes=["float"] * len(names))
 
 
+def _several_quantiles(column: Column, qs: list[object]) -> Column:
+    """s.quantile([0.1, 0.5, 0.9]): a Series of the quantiles labelled by the q's (floats),
+    named as the column; numpy's linear interpolation as pandas computes it, every quantile in
+    one pass (pandas_percentiles), missing for a column without values (NaN in pandas)."""
+    if not qs or not all(isinstance(v, (int, float)) and not isinstance(v, bool) and 0 <= v <= 1
+                         for v in qs):
+        raise Unsupported("quantiles other than numbers between 0 and 1 (pandas raises)")
+    if column.dtype not in ("int", "float") or column.element:
+        raise Unsupported("several quantiles of a column not known to hold numbers")
+    name = column.name
+    if not isinstance(name, str) or name == "index":
+        raise Unsupported("several quantiles of a Series without a text name")
+    values = [float(v) for v in qs]
+    labels = emit.pl("lit", emit.call("pl.Series", values, dtype=emit.atom("pl.Float64")))
+    code = column.frame.code.method(
+        "select", labels.method("alias", "index"),
+        emit.call(PERCENTILES_FUNCTION, column.code, values).method("alias", name))
+    result = Frame(code, columns=("index", name), index=("index",), index_unnamed=True,
+                   labels_intact=False, dtypes=(("index", "float"), (name, "float")))
+    return Column(emit.col(name), frame=result, name=name, dtype="float",
+                  refs=frozenset({name}))
+
+
 @rule("series.quantile")
 def series_quantile(call: PandasCall, ctx: RuleContext) -> Value:
     """Series.quantile(q) -> select(pandas_quantile(expr, q)).collect().item().
@@ -2293,9 +2316,11 @@ def series_quantile(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(column, Column)
     ctx.reject_unknown(call, "q", "interpolation", positional=1)
     q = call.const("q", 0, 0.5)
-    if not isinstance(q, (int, float)) or isinstance(q, bool):
-        raise Unsupported("several quantiles at once")
     method = call.const("interpolation", None, "linear")
+    if isinstance(q, (list, tuple)) and method == "linear":
+        return _several_quantiles(column, list(q))
+    if not isinstance(q, (int, float)) or isinstance(q, bool):
+        raise Unsupported("several quantiles at once, other than linear interpolation")
     if method not in ("linear", "lower", "higher", "nearest", "midpoint"):
         raise Unsupported(f"interpolation={method!r}")
     if method == "linear" and column.dtype in ("int", "float", None):
