@@ -235,6 +235,37 @@ def series_to_dict(call: PandasCall, ctx: RuleContext) -> Value:
     return Scalar(code, pytype="dict")
 
 
+@rule("frame.to_dict")
+def frame_to_dict(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.to_dict(orient) -> the collected frame made a dict by pandas:
+    frame.collect().to_pandas().to_dict(orient).
+
+    Handles: orient "records" and "list" (the row labels are not in them) of any frame; the
+    default "dict" and "index", "series", "split", "tight" (they hold the labels) of a frame
+    labelled 0..n-1 or by labels porter tracks (a groupby's keys, set_index, the row labels a
+    filter or sort left), restored as pandas' index; the values are pandas' own (an integer
+    column with a missing value is float, a missing value nan, dates Timestamps). The frame
+    crosses to pandas once, where the dict is made.
+    Caveats: into= and a frame whose labels porter lost are TODOs.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "orient", "index", positional=1)
+    orient = call.const("orient", 0, "dict", kinds=(str,))
+    if orient not in ("dict", "list", "series", "split", "tight", "records", "index"):
+        raise ctx.todo(f"orient={orient!r} (pandas raises)")
+    if orient not in ("records", "list") and not frame.index and not frame.labels_intact:
+        raise ctx.todo("the dict holds the row labels, which are no longer 0..n-1 here: "
+                       "reset_index() first, or use orient=\"records\"")
+    if orient == "series":
+        raise ctx.todo("orient=\"series\" holds pandas Series: collect and build the dict of "
+                       "columns")
+    ctx.handover = True  # pandas makes the dict: its own keys and values
+    options = {"index": call.const("index", None)} if call.has("index") else {}
+    return Scalar(handover.to_pandas(frame).method("to_dict", orient, **options), pytype="dict"
+                  if orient != "records" else "list")
+
+
 @rule("series.iloc")
 def series_position(call: PandasCall, ctx: RuleContext) -> Value:
     """s.iloc[i] -> the value at position i (pl.col(c).get(i)), as pandas gives it: a numpy
