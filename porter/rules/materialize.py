@@ -266,6 +266,31 @@ def frame_to_dict(call: PandasCall, ctx: RuleContext) -> Value:
                   if orient != "records" else "list")
 
 
+@rule("frame.itertuples")
+def frame_itertuples(call: PandasCall, ctx: RuleContext) -> Value:
+    """for row in df.itertuples(): -> the rows of the collected frame, made into named tuples
+    by pandas: frame.collect().to_pandas().itertuples(...).
+
+    Handles: index= and name= as pandas takes them; the row label first (Index) where the
+    frame is labelled 0..n-1 or by labels porter tracks (a groupby's keys, set_index, the
+    row labels a filter or sort left); the values are pandas' own (an integer column with a
+    missing value is float, a missing value nan, dates Timestamps). The frame crosses to pandas
+    once, where the loop starts.
+    Caveats: the labels of a frame porter lost (index=True after a step it cannot follow) are
+    a TODO.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "index", "name", positional=2)
+    index = call.const("index", 0, True)
+    if index is not False and not frame.index and not frame.labels_intact:
+        raise ctx.todo("each tuple starts with the row label, which is no longer 0..n-1 here: "
+                       "reset_index(drop=True) first, or pass index=False")
+    ctx.handover = True  # pandas makes the tuples: its own values
+    options = {name: call.const(name, None) for name in ("index", "name") if call.has(name)}
+    return Scalar(handover.to_pandas(frame).method("itertuples", **options), pytype="iterator")
+
+
 @rule("series.iloc")
 def series_position(call: PandasCall, ctx: RuleContext) -> Value:
     """s.iloc[i] -> the value at position i (pl.col(c).get(i)), as pandas gives it: a numpy
