@@ -350,7 +350,8 @@ def stack(call: PandasCall, ctx: RuleContext) -> Value:
     order, the columns in theirs: unpivot lays the cells out column by column, so a stable
     sort by the row number puts them row by row. The result is a Series labelled by the row
     keys and the columns' key, without a name.
-    Handles: a pivot on a text key (its values are the column labels pandas brings back).
+    Handles: a pivot on a text key (its values are the column labels pandas brings back); on
+    an integer key, the labels cast back from the text Polars names the columns by.
     Caveats: a pivot on a key of another type (Polars named the columns by their text), a
     table changed since the unstack, level= other than the last, and the older dropna= /
     sort= are TODOs."""
@@ -361,10 +362,12 @@ def stack(call: PandasCall, ctx: RuleContext) -> Value:
     pivoted, kind = number_cells(frame)
     name = frame.columns_name
     keys = list(frame.index)
-    if not pivoted or name is None or not keys or frame.columns_kind not in ("str",) \
-            or frame.column_pairs or frame.value_levels or name in keys:
-        raise ctx.todo("a table other than one unstack made on a text key, unchanged since: "
-                       "unpivot the columns and sort by row then column position")
+    if not pivoted or name is None or not keys or frame.columns_kind not in ("str", "int") \
+            or frame.column_pairs or frame.value_levels or name in keys \
+            or frame.columns_kind == "int" and (frame.int_labels_except is None
+                                                or set(frame.int_labels_except) - set(keys)):
+        raise ctx.todo("a table other than one unstack made on a text or integer key, "
+                       "unchanged since")
     if call.const("level", 0, -1, kinds=(int, str)) not in (-1, name):
         raise ctx.todo("level= other than the columns' only level")
     if call.const("future_stack", None, True) is not True:
@@ -378,8 +381,12 @@ def stack(call: PandasCall, ctx: RuleContext) -> Value:
     code = frame.code.method("with_row_index", _STACK_ROW).method(
         "unpivot", index=[_STACK_ROW, *keys], variable_name=name, value_name=values).method(
         "sort", _STACK_ROW, maintain_order=True).method("drop", _STACK_ROW)
+    if frame.columns_kind == "int":
+        # a pivot on an integer key: pandas' labels are the key's integers, Polars named the
+        # columns by their text
+        code = code.method("with_columns", emit.col(name).method("cast", emit.atom("pl.Int64")))
     dtypes = tuple((k, frame.dtype(k)) for k in keys if frame.dtype(k) is not None)
-    dtypes += ((name, "str"),) + (((values, kind),) if kind is not None else ())
+    dtypes += ((name, frame.columns_kind),) + (((values, kind),) if kind is not None else ())
     result = Frame(code, columns=(*keys, name, values), index=(*keys, name), dtypes=dtypes,
                    labels_intact=False)
     return Column(emit.col(values), frame=result, name=None, dtype=kind)
