@@ -220,7 +220,8 @@ def _numpy_through_pandas(module: cst.Module, facts: ImportFacts) -> cst.Module:
     """pandas' re-export of numpy (pd.np, removed in pandas 2.0) written as numpy itself, in
     the code porter kept as the script wrote it too: pandas 3 has no pd.np."""
     pandas = {n for n, q in facts.names.items() if q == "pandas"}
-    if not pandas or (".np" not in module.code and ".datetime" not in module.code):
+    if not pandas or ".np" not in module.code and not any(
+            f"{name}.datetime" in module.code for name in pandas):
         return module
     numpy = next((n for n, q in facts.names.items() if q == "numpy"), "np")
     return module.visit(_PandasNumpy(pandas, numpy))
