@@ -165,3 +165,199 @@ def test_old_month_end_aliases_in_resample(pandas_1_5, tmp_path, rule):
         out = df.set_index("sailed").resample("{rule}")[["fee", "tonnes"]].sum().reset_index()
         out.to_csv("data/out.csv", index=False)
     """, {"sailings.csv": SAILINGS})
+
+
+# a lime kiln's readings: the day written day-first and the clock time apart, a line with a
+# note in an extra field (twice: pandas 1.x's error_bad_lines=False leaves such lines out), a
+# short line (its last fields missing), a blank line, 'N/A' fuel, accented burners
+READINGS = """reading,kiln,date,clock,temp_c,fuel_kg,burner
+R1,Ruadh,02/04/2015,06:00,275.5,12.5,Séamus
+R2,Ruadh,02/04/2015,08:00,,N/A,
+R3,Nord,13/04/2015,23:00,650.5,10,,draw-hole blocked
+R4,Nord,13/04/2015,10:45,426.5,20
+
+R5,,14/04/2015,12:00,1180.0,0,Ishbel
+R6,Nord,14/04/2015,14:30,980.25,40,Anwen,,
+R7,Ruadh,01/05/2015,06:00,0.0,25.5,Jòsaidh
+"""
+
+PARSERS = {
+    "lambda": 'dateparse = lambda x: pd.datetime.strptime(x, "%d/%m/%Y %H:%M")',
+    "to_datetime": 'dateparse = lambda text: pd.to_datetime(text, format="%d/%m/%Y %H:%M")',
+}
+
+
+@pytest.mark.parametrize("bad_lines", ["error_bad_lines=False, warn_bad_lines=False",
+                                       "error_bad_lines=False"])
+@pytest.mark.parametrize("parser", sorted(PARSERS))
+def test_bad_lines_left_out_and_a_date_parser_named_once(pandas_1_5, tmp_path, bad_lines, parser):
+    # error_bad_lines=False (on_bad_lines="skip" / "warn" since): a line with more fields than
+    # the header is left out, a short one read with its missing fields; the date parser a name
+    # bound once to a function (a lambda, a def returning one call) of the joined day and time
+    source = "import pandas as pd\n" + PARSERS[parser] + f"""
+df = pd.read_csv("data/readings.csv", parse_dates=[["date", "clock"]], date_parser=dateparse,
+                 na_values=["N/A"], {bad_lines})
+df["burner"] = df["burner"].fillna(method="pad")
+df.to_csv("data/out.csv", index=False)
+"""
+    same_under_old_pandas(pandas_1_5, tmp_path, source, {"readings.csv": READINGS})
+
+
+@pytest.mark.parametrize("text", [
+    READINGS.replace("draw-hole blocked", '"draw-hole, blocked"'),  # a quote: a field may hold a comma
+    READINGS.replace("R1,Ruadh,02/04/2015,06:00,275.5,12.5,Séamus", "R1,Ruadh,02/04/2015,06:00,275.5,12.5,Séamus,x"),
+])
+def test_bad_lines_the_split_cannot_read_stay_a_todo(tmp_path, text):
+    # a quoted field (the split at commas would cut it) or a first data line longer than the
+    # header (pandas makes its first field the row label): the read is a TODO that says so
+    (tmp_path / "data").mkdir()
+    (tmp_path / "data" / "readings.csv").write_text(text, encoding="utf-8")
+    source = 'import pandas as pd\ndf = pd.read_csv("data/readings.csv", error_bad_lines=False)\n' \
+             'df.to_csv("data/out.csv", index=False)\n'
+    converted = convert_source(source, path="old.py", options=Options(data_dir=str(tmp_path)))
+    todos = [s for s in converted.sites if s.status == "todo"]
+    assert [s.key for s in todos] == ["pd.read_csv"], converted.converted_text
+    assert "no quotes" in todos[0].message and "pandas leaves out a row" in todos[0].message
+
+
+def test_bad_lines_without_data_stay_a_todo():
+    source = 'import pandas as pd\ndf = pd.read_csv("data/readings.csv", error_bad_lines=False)\n'
+    converted = convert_source(source, path="old.py", options=Options())
+    assert [s.key for s in converted.sites if s.status == "todo"] == ["pd.read_csv"]
+
+
+# a bothy's visitor book: a missing bothy, a party size missing, ties for the largest party
+VISITS = """entry,bothy,party,nights,town
+V1,Coire Dubh,4,2,Zürich
+V2,Lòn Mòr,6,1,
+V3,,6,3,Kraków
+V4,Coire Dubh,6,1,Besançon
+V5,Lòn Mòr,,2,Glasgow
+V6,Black Sike,2,2,Ålesund
+V7,Coire Dubh,6,,Glasgow
+V8,Lòn Mòr,6,2,Zürich
+"""
+
+
+@pytest.mark.parametrize("body", [
+    'g[g["party"] == g["party"].max()]',         # some rows of each group: key order
+    'g[g["party"] >= g["party"].min()]',         # every row but a missing party's
+    'g[g["nights"] > 0]',                        # a missing night keeps no row
+    'g[g["party"] > 0]',                         # the missing party's group keeps fewer rows
+    'g[g["party"] == g["party"]]',               # NaN == NaN is False
+])
+@pytest.mark.parametrize("sort", ["", 'df = df.sort_values("town")'])
+def test_rows_of_each_group_chosen_by_a_mask(pandas_1_5, tmp_path, body, sort):
+    # groupby(k).apply(lambda g: g[mask]) under pandas 1.x: the key columns kept in the rows;
+    # the frame's order where every group keeps all its rows, else the groups in key order
+    same_under_old_pandas(pandas_1_5, tmp_path, f"""
+        import pandas as pd
+        df = pd.read_csv("data/visits.csv")
+        {sort}
+        out = df.groupby("bothy").apply(lambda g: {body}).reset_index(drop=True)
+        out.to_csv("data/out.csv", index=False)
+        blank = pd.np.nan  # (a pandas 1.x script)
+    """, {"visits.csv": VISITS})
+
+
+def test_rows_chosen_by_a_mask_every_row_kept(pandas_1_5, tmp_path):
+    # every group keeps all its rows: pandas 1.x gave the frame's order (a missing key's rows
+    # left out), not the groups one after another
+    same_under_old_pandas(pandas_1_5, tmp_path, """
+        import pandas as pd
+        df = pd.read_csv("data/visits.csv")
+        out = df.groupby("bothy").apply(lambda g: g[g["entry"] != "none"]).reset_index(drop=True)
+        out.to_csv("data/out.csv", index=False)
+        blank = pd.np.nan  # (a pandas 1.x script)
+    """, {"visits.csv": VISITS})
+
+
+WHEN = """stay,hut,at
+S1,Nord,2015-04-02 06:00
+S2,Nord,2015-04-02 18:30
+S3,Süd,2015-04-03 07:00
+S4,Nord,
+S5,,2015-04-04 09:00
+S6,Süd,2015-04-05 23:59
+S7,Süd,2015-04-05 00:00
+"""
+
+
+@pytest.mark.parametrize("key", ['["hut"]', '"hut"'])
+def test_days_counted_per_group_in_a_loop_appending_rows(pandas_1_5, tmp_path, key):
+    # for k, rows in df.groupby(["hut"]): k is the key itself under pandas 1.x (a tuple of one
+    # under pandas 2 and 3); rows["at"].dt.date.nunique() counts the days, a missing time none
+    same_under_old_pandas(pandas_1_5, tmp_path, f"""
+        import pandas as pd
+        df = pd.read_csv("data/when.csv", parse_dates=["at"])
+        out = pd.DataFrame()
+        for k, rows in df.groupby({key}):
+            out = out.append({{"hut": k, "stays": len(rows), "days": rows["at"].dt.date.nunique()}},
+                             ignore_index=True)
+        out.to_csv("data/out.csv", index=False)
+    """, {"when.csv": WHEN})
+
+
+def test_bad_lines_beside_a_whitespace_separator_stay_a_todo(tmp_path):
+    (tmp_path / "data").mkdir()
+    (tmp_path / "data" / "t.txt").write_text("a b\n1 2\n3 4 5\n", encoding="utf-8")
+    source = 'import pandas as pd\ndf = pd.read_csv("data/t.txt", sep=r"\\s+", error_bad_lines=False)\n'
+    converted = convert_source(source, path="old.py", options=Options(data_dir=str(tmp_path)))
+    assert [s.key for s in converted.sites if s.status == "todo"] == ["pd.read_csv"]
+
+
+@pytest.mark.parametrize("loop", [
+    'for k, rows in df.groupby(["hut"]):\n    seen[k] = len(rows)',
+    'for k, at in df.groupby(by=["hut"], sort=False)["at"]:\n    seen[k] = at.count()',
+])
+def test_a_loop_over_a_groupby_on_one_listed_key_kept_on_pandas(pandas_1_5, tmp_path, loop):
+    # a loop porter keeps on pandas (a TODO) runs under pandas 3.1, where a list of one key
+    # gives tuples: in a pandas 1.x script the groupby is on the key itself, whose groups'
+    # keys are the values pandas 1.x gave
+    (tmp_path / "data").mkdir()
+    (tmp_path / "data" / "when.csv").write_text(WHEN, encoding="utf-8")
+    script = tmp_path / "old.py"
+    script.write_text("import pandas as pd\n"
+                      'df = pd.read_csv("data/when.csv")\n'
+                      "df = df.sort_values(\"stay\", ascending=False)\n"
+                      "seen = {}\n" + loop + "\n"
+                      'pd.DataFrame({"hut": list(seen), "n": list(seen.values())})'
+                      '.to_csv("data/out.csv", index=False)\n'
+                      "blank = pd.np.nan\n", encoding="utf-8")
+    converted = convert_source(script.read_text(encoding="utf-8"), path=str(script),
+                               options=Options(data_dir=str(tmp_path)))
+    assert "groupby([" not in converted.converted_text, converted.converted_text
+    result = verify(script, converted.converted_text, tmp_path,
+                    VerifyOptions(reference_python=pandas_1_5))
+    assert result.verdict == "same", json.dumps(result.to_json(), indent=1, default=str)[:3000]
+
+
+@pytest.mark.parametrize("read", [
+    'pd.read_csv("data/readings.csv", parse_dates=[["date", "clock"]], date_parser=dateparse, '
+    'na_values=["N/A"], error_bad_lines=False, warn_bad_lines=False)',
+    'pd.read_csv("data/readings.csv", parse_dates={"at": ["date", "clock"]}, '
+    'date_parser=lambda d, t: pd.to_datetime(d + " " + t, format="%d/%m/%Y %H:%M"), '
+    'error_bad_lines=False, warn_bad_lines=False, keep_date_col=True)',
+    'pd.read_csv("data/readings.csv", usecols=["reading", "date"], parse_dates=["date"], '
+    'date_parser=dateparse_day, error_bad_lines=False, warn_bad_lines=False)',
+    'pd.read_csv("data/one.csv", squeeze=True).to_frame("kiln")',
+    'pd.read_csv("data/readings.csv", squeeze=True, error_bad_lines=False, warn_bad_lines=False)',
+])
+def test_a_read_kept_on_pandas_reads_the_removed_options_as_pandas_1_5(pandas_1_5, tmp_path, read):
+    # without --data these reads stay pandas' (a TODO): the kept call runs under pandas 3.1,
+    # which has none of squeeze=, error_bad_lines=, date_parser=, parse_dates joining columns,
+    # keep_date_col= nor pd.datetime: pandas_read_csv reads them as pandas 1.5 did
+    (tmp_path / "data").mkdir()
+    (tmp_path / "data" / "readings.csv").write_text(READINGS, encoding="utf-8")
+    (tmp_path / "data" / "one.csv").write_text("kiln\nRuadh\nNord\n\nÒrd\n", encoding="utf-8")
+    script = tmp_path / "old.py"
+    script.write_text("import pandas as pd\n"
+                      'dateparse = lambda x: pd.datetime.strptime(x, "%d/%m/%Y %H:%M")\n'
+                      'dateparse_day = lambda x: pd.to_datetime(x, format="%d/%m/%Y")\n'
+                      f"df = {read}\n"
+                      'df.to_csv("data/out.csv", index=False)\n', encoding="utf-8")
+    converted = convert_source(script.read_text(encoding="utf-8"), path=str(script), options=Options())
+    assert "pandas_read_csv(" in converted.converted_text, converted.converted_text
+    result = verify(script, converted.converted_text, tmp_path,
+                    VerifyOptions(reference_python=pandas_1_5))
+    assert result.verdict == "same", json.dumps(result.to_json(), indent=1, default=str)[:3000]

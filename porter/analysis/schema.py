@@ -84,6 +84,10 @@ class FileSchema(dict[str, str]):
     # read_csv(sep=r"\s+"): a quote in the file, or a data line whose number of fields is not
     # the header's (see SchemaReader._read_words)
     words_unsure: bool = False
+    # read_csv(on_bad_lines="skip" / "warn", pandas 1.x's error_bad_lines=False): a quote, a
+    # carriage return, a line of spaces, the first data line longer than the header, or no
+    # data line (see SchemaReader._read_skipping_bad_lines)
+    bad_lines_unsure: bool = False
     # read_csv(true_values=..., false_values=...): the text columns pandas reads as True/False
     # (every value one of them or of pandas' own True/False texts); scanned as text here
     bool_texts: tuple[str, ...] = ()
@@ -221,6 +225,8 @@ class SchemaReader:
                 options = {**options, "lineterminator": "\r"}
         if reader == "csv" and options.get("sep") == WHITESPACE_SEPARATOR:
             return self._read_words(file, options)
+        if reader == "csv" and options.get("on_bad_lines") == "skip":
+            return self._read_skipping_bad_lines(file, options)
         if reader == "csv" and (options.get("skipinitialspace") or options.get("skiprows_list")):
             return self._read_stripped(file, options)
         if reader == "csv" and isinstance(options.get("nrows"), int):
@@ -260,6 +266,40 @@ class SchemaReader:
             copy = Path(folder) / "words.csv"
             with copy.open("w", newline="", encoding="utf-8") as out:
                 csv.writer(out).writerows(rows)
+            return self._read_file("csv", copy, rest)
+
+    def _read_skipping_bad_lines(self, file: Path, options: dict[str, Any]) -> dict[str, str] | None:
+        """read_csv(on_bad_lines="skip"): the schema of the file as pandas reads it, a data
+        line with more fields than the header left out, one with fewer filled with missing
+        values, blank lines skipped; read from a copy with those lines so. The read splits
+        each line at the separator itself (rules/io.py), which is pandas' reading only without
+        quotes: a quote in the file, a carriage return, a line of spaces only (pandas skips
+        it), a first data line longer than the header (pandas makes its first field the row
+        label) or no data line marks the schema `bad_lines_unsure`: the read is a TODO."""
+        import csv
+        import tempfile
+
+        if file.stat().st_size > SAMPLE_SCAN_LIMIT:
+            return None
+        try:
+            text = file.read_text(encoding="utf-8")
+        except (OSError, UnicodeDecodeError):
+            return None
+        sep = options.get("sep", ",")
+        lines = [line for line in text.split("\n") if line]
+        rows = [line.split(sep) for line in lines]
+        if len(rows) < 2 or '"' in text or "\r" in text or any(not line.strip() for line in lines) \
+                or len(rows[1]) > len(rows[0]):
+            found = FileSchema()
+            found.bad_lines_unsure = True
+            return found
+        width = len(rows[0])
+        kept = [row + [""] * (width - len(row)) for row in rows if len(row) <= width]
+        rest = {k: v for k, v in options.items() if k != "on_bad_lines"}
+        with tempfile.TemporaryDirectory() as folder:
+            copy = Path(folder) / "kept.csv"
+            with copy.open("w", newline="", encoding="utf-8") as out:
+                csv.writer(out, delimiter=sep, lineterminator="\n").writerows(kept)
             return self._read_file("csv", copy, rest)
 
     def _read_stripped(self, file: Path, options: dict[str, Any]) -> dict[str, str] | None:

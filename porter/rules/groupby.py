@@ -3086,6 +3086,13 @@ class _Rows:
 
 
 @dataclass(frozen=True)
+class _Dates:
+    """g["when"].dt: the date parts of a datetime column of the group."""
+
+    column: "_GroupColumn"
+
+
+@dataclass(frozen=True)
 class _Loc:
     rows: _Rows
 
@@ -3198,6 +3205,14 @@ class _BodyReader:
         name = node.attr.value
         if isinstance(value, _Rows) and name == "loc":
             return _Loc(value)
+        if isinstance(value, _GroupColumn) and value.dtype == "datetime" and name == "dt":
+            return _Dates(value)
+        if isinstance(value, _Dates) and name == "date":
+            # g["when"].dt.date: each time's day (a missing time a missing day), an object
+            # Series of dates in pandas, which only count / nunique reduce here (the reduction
+            # refuses the others: pandas keeps such values in an object Series)
+            column = value.column
+            return _GroupColumn(column.code.attr("dt").method("date"), "date", column.mask)
         if isinstance(value, _Rows) and name not in pandas_names.FRAME:
             return self.column(value, name)
         raise self.fail(f"uses `.{name}`")
@@ -3561,6 +3576,8 @@ def _rows_of_groups(param: str, body: cst.BaseExpression, grouped: Grouped, call
     """
     from porter.rules.legacy import written_for_older_pandas
 
+    if _group_mask(param, body) is not None:
+        return _masked_rows_of_groups(param, body, grouped, call, ctx)
     if not (isinstance(body, cst.Call) and isinstance(body.func, cst.Attribute)
             and isinstance(body.func.value, cst.Name) and body.func.value.value == param
             and body.func.attr.value in _GROUP_ROW_METHODS):
@@ -3644,6 +3661,78 @@ def _rows_of_groups(param: str, body: cst.BaseExpression, grouped: Grouped, call
               "function (pandas 3 leaves them out); the rows grouped in key order, or in the "
               "frame's order where every group's result is its own rows in order, as pandas "
               "1.x gave them (pandas 2 groups them always)", 0.8)
+    return derive(frame, code, same_rows=False)
+
+
+def _group_mask(param: str, body: cst.BaseExpression) -> cst.BaseExpression | None:
+    """The mask of `g[mask]` (one key that reads the group: not a column's name), else None."""
+    if not (isinstance(body, cst.Subscript) and isinstance(body.value, cst.Name)
+            and body.value.value == param and len(body.slice) == 1
+            and isinstance(body.slice[0].slice, cst.Index)):
+        return None
+    key = body.slice[0].slice.value
+    found = False
+
+    class Find(cst.CSTVisitor):
+        def visit_Name(self, name: cst.Name) -> None:
+            nonlocal found
+            found = found or name.value == param
+
+        def visit_Attribute(self, attr: cst.Attribute) -> bool:
+            attr.value.visit(self)
+            return False
+
+    key.visit(Find())
+    return key if found else None
+
+
+def _masked_rows_of_groups(param: str, body: cst.BaseExpression, grouped: Grouped,
+                           call: PandasCall, ctx: RuleContext) -> Frame | None:
+    """apply(lambda g: g[g["n"] == g["n"].max()]) in a script written for pandas 1.x: the rows
+    of each group its mask keeps (a comparison of the group's columns with values of the
+    group: g["c"].max(), .mean(), a constant), every column kept, as pandas 1.x gave them;
+    None for a script of today's pandas (the function reads the key columns, which pandas 3
+    leaves out: a TODO as before).
+
+    The mask is computed within each group (over the keys); a missing value in a comparison
+    keeps no row, as pandas' False. Rows of a missing key are left out. pandas 1.x (source of
+    1.5, read: _python_apply_general, _concat_objects) gave the rows in the frame's order when
+    every group's result was the group itself (its index the group's: every row kept), and
+    else one group after another in sorted key order, each group's rows in the frame's order.
+    """
+    from porter.rules.legacy import written_for_older_pandas
+
+    if not written_for_older_pandas(ctx.python_module):
+        return None
+    if call.has("include_groups"):
+        raise ctx.todo("include_groups=: the rows without the key columns (pandas 2.2 and 3), "
+                       "which porter does not port")
+    if grouped.prepared or grouped.pandas is not None or grouped.frame.index:
+        raise ctx.todo("apply of rows on a groupby of a computed key or of a labelled table")
+    if not grouped.sort or not grouped.dropna:
+        raise ctx.todo("apply of rows with sort=False or dropna=False")
+    frame = grouped.frame
+    key_names = list(grouped.keys)
+    if any(not isinstance(k, str) for k in key_names):
+        raise ctx.todo("apply of rows on keys porter cannot name")
+    mask = _BodyReader(param, grouped, ctx).read(_group_mask(param, body))  # type: ignore[arg-type]
+    if not isinstance(mask, _Mask):
+        raise ctx.todo("apply(lambda g: g[key]) with a key that is not a True/False mask of the "
+                       "group's rows")
+    row, keep = "_porter_row", "_porter_keep"
+    if frame.columns is not None and {row, keep} & set(frame.columns):
+        raise ctx.todo(f"a column named {row} or {keep}")
+    code = frame.code.method("with_row_index", row).method("filter", _keys_present_of(key_names))
+    code = code.method("with_columns", mask.filled().method("over", *key_names).method("alias", keep))
+    # every row kept (each group's result the group itself): the frame's order; else the
+    # groups in key order, each group's rows in the frame's order (a stable sort)
+    code = code.method("sort", [emit.when(emit.col(keep).method("all"), emit.col(row)),
+                                *key_names], maintain_order=True)
+    code = code.method("filter", emit.col(keep)).method("drop", row, keep)
+    ctx.lower("the key columns stay in the rows, as pandas 1.x and 2.x passed them to the "
+              "function (pandas 3 leaves them out); the rows grouped in key order, or in the "
+              "frame's order where every group keeps all its rows, as pandas 1.x gave them "
+              "(pandas 2 groups them always)", 0.8)
     return derive(frame, code, same_rows=False)
 
 

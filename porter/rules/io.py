@@ -35,6 +35,10 @@ from porter.translate.values import Frame, Indexed, Module, Opaque, PandasValue,
 # "string" (StringDtype, pd.NA for missing) and object
 ALL_TEXT_DTYPES = ("str", "string", "object")
 READ_CSV_IGNORED = {"low_memory", "engine", "memory_map", "on_bad_lines"}
+# read_csv's options beside which on_bad_lines="skip" is read (_scan_fields)
+BAD_LINES_BESIDE = ("filepath_or_buffer", "sep", "delimiter", "na_values", "parse_dates",
+                    "date_parser", "dayfirst", "on_bad_lines", "low_memory", "engine",
+                    "memory_map")
 
 
 def dtype_spelling(value: Value) -> str | None:
@@ -126,8 +130,10 @@ def _read_modern_csv(call: PandasCall, ctx: RuleContext) -> Value:
     and where the sample has no quotes and the same number of fields on every line).
     Caveats: converters, encodings
     other than UTF-8, latin-1 and cp1252 (read eagerly by pl.read_csv(encoding=...).lazy()),
-    on_bad_lines="skip"/"warn" (pandas leaves out a row
-    with more fields than the header) and sep=None (pandas guesses the separator) are TODOs; na_values per column needs --data (or a
+    on_bad_lines="skip"/"warn" beside options other than sep=, na_values=, parse_dates= and
+    date_parser= or without --data (pandas leaves out a row with more fields than the header:
+    with --data the lines are split at the separator, _scan_fields) and sep=None (pandas
+    guesses the separator) are TODOs; na_values per column needs --data (or a
     dtype= for those columns), and so do the options above. A comment after the data on a
     line is a TODO with --data (pandas cuts it, Polars keeps it), 0.8 without. With nrows, Polars still infers types from the whole file (0.9).
     Integers beyond int64 beside a negative value or a blank (text in pandas, Int128 in
@@ -177,11 +183,22 @@ def _read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                   "\" 5\" or \"+3\", an all-blank column and a file of a header only as text", 0.9)
     keep_default_na = call.const("keep_default_na", None, True, kinds=(bool,)) is not False
     bad_lines = call.const("on_bad_lines", None, "error", kinds=(str,)) if call.has("on_bad_lines") else "error"
-    if bad_lines != "error":
-        # pandas leaves out a row with more fields than the header (and warns with "warn");
-        # Polars' reader keeps it, its extra fields cut off, or fails on it
-        raise ctx.todo(f"on_bad_lines={bad_lines!r}: pandas leaves out a row with more fields "
-                       "than the header, Polars' reader keeps it (its extra fields cut off)")
+    skip_bad = bad_lines in ("skip", "warn")
+    if skip_bad:
+        # pandas leaves out a row with more fields than the header (and with "warn" says so on
+        # stderr); Polars' reader keeps it, its extra fields cut off, or fails on it: the file's
+        # lines are split at the separator here (_scan_fields), with --data showing no quotes
+        others = set(call.kwargs) - set(BAD_LINES_BESIDE)
+        if others or len(call.args) > 1:
+            raise ctx.todo(f"on_bad_lines={bad_lines!r} beside "
+                           f"{', '.join(sorted(others)) or 'more arguments'}: pandas leaves out "
+                           "a row with more fields than the header, Polars' reader keeps it (its "
+                           "extra fields cut off); porter splits the lines itself beside "
+                           f"{', '.join(BAD_LINES_BESIDE[1:4])}, parse_dates= and "
+                           "date_parser= only")
+    elif bad_lines != "error":
+        raise ctx.todo(f"on_bad_lines={bad_lines!r}: pandas calls the function with each line "
+                       "that has more fields than the header")
     for name in ("sep", "delimiter"):
         if call.has(name) and call.const(name, None, "", kinds=(str, type(None))) is None:
             # sep=None (engine="python"): pandas guesses the separator from the file's first
@@ -189,9 +206,15 @@ def _read_csv(call: PandasCall, ctx: RuleContext) -> Value:
             raise ctx.todo(f"{name}=None: pandas guesses the separator from the file's first "
                            "line; give it (sep=\";\") so the scan reads it")
     options: dict[str, Any] = {}
+    if skip_bad:
+        options["on_bad_lines"] = "skip"  # the schema reader leaves those lines out too
     kwargs: dict[str, object] = {}
     sep = call.const("sep", None, None, kinds=(str,)) or call.const("delimiter", None, None, kinds=(str,))
     words = sep == WHITESPACE_SEPARATOR  # fields split at runs of spaces and tabs
+    if words and skip_bad:
+        raise ctx.todo(f"on_bad_lines={bad_lines!r} beside sep={sep!r}: pandas leaves out a row "
+                       "with more fields than the header; porter splits the lines at one "
+                       "separator character only")
     if words:
         others = set(call.kwargs) - {"sep", "delimiter", "na_values", *READ_CSV_IGNORED}
         if others or len(call.args) > 1:
@@ -480,6 +503,14 @@ def _read_csv(call: PandasCall, ctx: RuleContext) -> Value:
                        "as object (a sum is 0, max and mean NaN, a concat with it makes the "
                        "other frames' columns object); Polars has no such columns")
     exact = getattr(schema, "polars", None)
+    if skip_bad and (not exact or "" in exact or getattr(schema, "partial", False)
+                     or not all(t in TEXT_CASTS for t in exact.values())):
+        raise ctx.todo(f"on_bad_lines={bad_lines!r}: pandas leaves out a row with more fields "
+                       "than the header, Polars' reader keeps it (its extra fields cut off); "
+                       "porter splits the lines at the separator itself and casts the columns "
+                       "to the types pandas reads, which it knows with --data only (columns of "
+                       "numbers or text, no quotes, no carriage returns, no lines of spaces, "
+                       "the first data line no longer than the header)")
     if words and (not exact or "" in exact or getattr(schema, "partial", False)
                   or not all(t in TEXT_CASTS for t in exact.values())):
         raise ctx.todo(f"sep={sep!r}: porter splits the lines at runs of spaces and tabs itself "
@@ -514,7 +545,15 @@ def _read_csv(call: PandasCall, ctx: RuleContext) -> Value:
             # (a cast of "1,5" to Float64 fails: a decimal comma is read by the typed scan)
             code = _scan_as_text(source.code, kwargs, types, bool(getattr(schema, "partial", False)),
                                  decoded, strip_start=skip_spaces, dropped=dropped,
-                                 words=list(exact) if words else None)
+                                 words=list(exact) if words else None,
+                                 fields=(sep or ",", list(exact)) if skip_bad else None)
+            if skip_bad:
+                ctx.lower(f"on_bad_lines={bad_lines!r}: each line is split at the separator "
+                          "and a line with more fields than the header left out, as pandas "
+                          "does; a quoted field holding the separator is split (--data showed "
+                          "no quotes)" + (", and pandas' message on stderr for each line "
+                                          "left out is not written" if bad_lines == "warn"
+                                          else ""), 0.95)
             if words:
                 ctx.lower("sep=r\"\\s+\": each line is split at runs of spaces and tabs; a "
                           "line with more fields than the header is cut to the header's (pandas "
@@ -742,7 +781,8 @@ def _scan(source: Code, kwargs: dict[str, Any], encoding: str | None) -> Code:
 
 def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], partial: bool,
                   encoding: str | None = None, strip_start: bool = False,
-                  dropped: list[int] | None = None, words: list[str] | None = None) -> Code:
+                  dropped: list[int] | None = None, words: list[str] | None = None,
+                  fields: tuple[str, list[str]] | None = None) -> Code:
     """A scan of every column as text, pandas' missing-value tokens made missing, and a cast to
     the types porter read from --data.
 
@@ -753,7 +793,8 @@ def _scan_as_text(source: Code, kwargs: dict[str, Any], types: dict[str, Code], 
     the typed scan's schema_overrides ignore the ones it lacks."""
     options = {k: v for k, v in kwargs.items() if k not in ("schema_overrides", "null_values")}
     nulls = kwargs.get("null_values")  # none with keep_default_na=False and no na_values
-    code = _scan(source, options, encoding) if words is None else _scan_words(source, words)
+    code = _scan_fields(source, *fields) if fields is not None else \
+        _scan(source, options, encoding) if words is None else _scan_words(source, words)
     if dropped:
         # read_csv(skiprows=[...]): the data rows pandas skips, counted as the scan reads them
         # (before blank lines are left out: pandas counts them too)
@@ -796,6 +837,23 @@ def _scan_words(source: Code, names: list[str]) -> Code:
             .method("select", line.attr("str").method("extract_all", emit.atom(WORD_PATTERN)))
             .method("filter", emit.binop(line.attr("list").method("len"), ">", 0))
             .method("slice", 1)
+            .method("select", line.attr("list").method("to_struct", fields=names)
+                    .attr("struct").method("unnest")))
+
+
+def _scan_fields(source: Code, sep: str, names: list[str]) -> Code:
+    """read_csv(on_bad_lines="skip") (pandas 1.x: error_bad_lines=False): the file's lines,
+    blank ones skipped, each split at the separator; the header line left out, a line with more
+    fields than the header left out as pandas leaves it out, one with fewer given missing
+    values for the fields it lacks (as pandas reads it), and the fields named by the header
+    (as --data showed it) in text columns. --data showed no quotes: no field holds the
+    separator."""
+    line = emit.col("line")
+    return (emit.pl("scan_lines", source)
+            .method("filter", emit.binop(line, "!=", ""))
+            .method("select", line.attr("str").method("split", sep))
+            .method("slice", 1)
+            .method("filter", emit.binop(line.attr("list").method("len"), "<=", len(names)))
             .method("select", line.attr("list").method("to_struct", fields=names)
                     .attr("struct").method("unnest")))
 
@@ -964,6 +1022,9 @@ def _date_parser_format(call: PandasCall, ctx: RuleContext) -> str | None:
         return None
     function = call.arg("date_parser")
     node = function.node if isinstance(function, Opaque) else None
+    if node is None and isinstance(function, Opaque) and function.code.text.isidentifier():
+        # dateparse = lambda x: ... bound once in the script
+        node = _function_bound_once(function.code.text, ctx)
     todo = ctx.todo("date_parser= (removed in pandas 3) other than lambda x: "
                     "pd.to_datetime(x, format=...) or datetime.strptime(x, ...): write "
                     "date_format= or parse the column with pd.to_datetime after reading")
@@ -989,6 +1050,45 @@ def _date_parser_format(call: PandasCall, ctx: RuleContext) -> str | None:
     if not isinstance(fmt, cst.SimpleString) or not isinstance(fmt.evaluated_value, str):
         raise todo
     return fmt.evaluated_value
+
+
+def _function_bound_once(name: str, ctx: RuleContext) -> cst.Lambda | None:
+    """The lambda a name of the script stands for (`dateparse = lambda x: ...`), when the
+    script binds the name there only, at the top level, and nowhere else (never assigned,
+    imported, defined or deleted again); None otherwise."""
+    import ast as python_ast
+
+    module = ctx.python_module
+    if not isinstance(module, python_ast.Module):
+        return None
+    found: list[python_ast.AST] = []
+    for node in python_ast.walk(module):
+        if isinstance(node, (python_ast.FunctionDef, python_ast.AsyncFunctionDef,
+                             python_ast.ClassDef)) and node.name == name:
+            found.append(node)
+        elif isinstance(node, python_ast.Name) and node.id == name \
+                and not isinstance(node.ctx, python_ast.Load):
+            found.append(node)
+        elif isinstance(node, (python_ast.Import, python_ast.ImportFrom)) \
+                and any((a.asname or a.name) == name for a in node.names):
+            found.append(node)
+        elif isinstance(node, python_ast.arg) and node.arg == name:
+            found.append(node)
+    if len(found) != 1:
+        return None
+    lambda_text = None
+    for statement in module.body:
+        if isinstance(statement, python_ast.Assign) and len(statement.targets) == 1 \
+                and isinstance(statement.targets[0], python_ast.Name) \
+                and statement.targets[0].id == name and isinstance(statement.value, python_ast.Lambda):
+            lambda_text = python_ast.unparse(statement.value)
+    if lambda_text is None:
+        return None
+    try:
+        parsed = cst.parse_expression(lambda_text)
+    except cst.ParserSyntaxError:
+        return None
+    return parsed if isinstance(parsed, cst.Lambda) else None
 
 
 def _combined_dates(frame: Frame, parse_dates: Any, fmt: str | None, schema: Any,

@@ -611,6 +611,92 @@ def pandas_append(appended_to, other, ignore_index=False, verify_integrity=False
 """
 
 
+READ_CSV_FUNCTION = "pandas_read_csv"
+READ_CSV_DEFINITION = """\
+def pandas_read_csv(*args, squeeze=False, error_bad_lines=None, warn_bad_lines=None,
+                    delim_whitespace=False, infer_datetime_format=False, parse_dates=None,
+                    date_parser=None, keep_date_col=False, **kwargs):
+    \"\"\"pd.read_csv as pandas 1.5 read it, with the options pandas 2 and 3 removed: squeeze=True
+    (a file of one column is that column), error_bad_lines=False (on_bad_lines=), delim_whitespace
+    (sep=r"\\\\s+"), parse_dates joining columns ([["d", "t"]] or {"name": ["d", "t"]}: the texts
+    joined with a space, the new column first) and date_parser= (called on the columns, else on
+    each joined text, else on each row's texts, as pandas 1.5's converter tried them; a column it
+    cannot read stays text).\"\"\"
+    pandas = __import__("pandas")
+
+    if error_bad_lines is False:
+        kwargs["on_bad_lines"] = "skip" if warn_bad_lines is False else "warn"
+    if delim_whitespace:
+        kwargs["sep"] = r"\\s+"
+    groups, keep = [], set()
+    if isinstance(parse_dates, dict):
+        groups = [(name, list(cols)) for name, cols in parse_dates.items()]
+    elif isinstance(parse_dates, (list, tuple)):
+        for col in parse_dates:
+            if isinstance(col, list):
+                groups.append(("_".join(str(c) for c in col), col))
+            else:
+                groups.append((col, [col]))
+                keep.add(col)
+    elif parse_dates:
+        return pandas.read_csv(*args, parse_dates=parse_dates, **kwargs)
+    texts = {c for _, cols in groups for c in cols}
+    if texts:
+        given = kwargs.get("dtype")
+        kwargs["dtype"] = {**(given if isinstance(given, dict) else {}), **{c: object for c in texts}}
+    frame = pandas.read_csv(*args, **kwargs)
+
+    def dates(cols):
+        values = [frame[c].to_numpy(dtype=object) for c in cols]
+        joined = [" ".join(str(v) for v in row) for row in zip(*values)]
+        if date_parser is None:
+            found = joined
+        else:
+            try:
+                found = date_parser(*values)
+                if isinstance(found, __import__("datetime").datetime):
+                    raise TypeError("one value")
+            except Exception:
+                try:
+                    found = [date_parser(text) for text in joined]
+                except Exception:
+                    found = [date_parser(*row) for row in zip(*values)]
+        try:
+            return pandas.to_datetime(found)
+        except (ValueError, TypeError):
+            return pandas.Series(found, dtype=object).to_numpy()
+
+    made = {name: dates(cols) for name, cols in groups}
+    joined_away = [c for name, cols in groups for c in cols if name not in keep]
+    if not keep_date_col:
+        frame = frame.drop(columns=[c for c in joined_away if c in frame.columns])
+    for name in keep:
+        frame[name] = made[name]
+    new = [name for name, _ in groups if name not in keep]
+    for at, name in enumerate(new):
+        frame.insert(at, name, made[name])
+    if squeeze and len(frame.columns) == 1:
+        return frame[frame.columns[0]].copy()
+    return frame
+"""
+READ_CSV_REMOVED = ("squeeze", "error_bad_lines", "warn_bad_lines", "delim_whitespace",
+                    "infer_datetime_format", "date_parser", "keep_date_col")
+
+
+def modern_read_csv_call(args: list[tuple[str | None, str]]) -> str | None:
+    """pd.read_csv(...) kept on pandas, as it runs under pandas 3.1 when it uses an option
+    pandas 2 or 3 removed (or parse_dates joining columns): pandas_read_csv(...), which reads
+    those as pandas 1.5 did (READ_CSV_DEFINITION); None when it uses none."""
+    keywords = {keyword: text for keyword, text in args if keyword is not None}
+    parse_dates = keywords.get("parse_dates", "")
+    joins = parse_dates.lstrip("(").startswith("{") or "[[" in parse_dates.replace(" ", "") \
+        or ", [" in parse_dates or ",[" in parse_dates
+    if not (set(keywords) & set(READ_CSV_REMOVED) or joins):
+        return None
+    written = [text if keyword is None else f"{keyword}={text}" for keyword, text in args]
+    return f"{READ_CSV_FUNCTION}({', '.join(written)})"
+
+
 def modern_call(receiver: str, name: str, args: list[tuple[str | None, str]]) -> str | None:
     """`receiver.name(args)` of a pandas object kept on pandas, as it runs under pandas 3.1
     (the whole call), given the receiver's code and the arguments as (keyword or None, text);

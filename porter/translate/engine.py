@@ -673,6 +673,10 @@ class _Walker:
                 # a loop over a Series reads its values as pandas gives them (NaN, not None)
                 iter_value = replace(iter_value, code=handover.python_values(iter_value))
             changes["iter"] = self.header(stmt.iter, env, stmt, iter_value)
+            if isinstance(stmt.target, cst.Tuple):
+                from porter.rules.legacy import written_for_older_pandas
+                if written_for_older_pandas(self.services.python_module):
+                    changes["iter"] = _keys_as_values(changes["iter"])
             loop_env = dict(env)
             pytype = "str" if _iterates_names(iter_value) else None
             names = tuple(iter_value.const) if pytype == "str" and isinstance(iter_value, Opaque) \
@@ -2822,6 +2826,31 @@ def _changed_by_functions(node: cst.CSTNode, functions: dict[str, Any]) -> list[
 
     node.visit(Calls())
     return found
+
+
+def _keys_as_values(header: cst.BaseExpression) -> cst.BaseExpression:
+    """`for k, g in df.groupby(["k"]):` kept on pandas in a script written for pandas 1.x: the
+    groupby on the key itself (`df.groupby("k")`), which gives each group's key as the value
+    pandas 1.x gave (pandas 2 and 3 give a tuple of one for a list of one key). A header of
+    any other form is returned as it is."""
+    node = header
+    selection = None
+    if isinstance(node, cst.Subscript):  # df.groupby(["k"])["x"]
+        selection, node = node, node.value
+    if not (isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute)
+            and node.func.attr.value == "groupby" and node.args):
+        return header
+    args = list(node.args)
+    at = next((i for i, a in enumerate(args) if a.keyword is None or a.keyword.value == "by"), None)
+    if at is None or (args[at].keyword is None and at != 0) or args[at].star:
+        return header
+    keys = args[at].value
+    if not (isinstance(keys, cst.List) and len(keys.elements) == 1
+            and isinstance(keys.elements[0], cst.Element)):
+        return header
+    args[at] = args[at].with_changes(value=keys.elements[0].value)
+    grouped = node.with_changes(args=args)
+    return grouped if selection is None else selection.with_changes(value=grouped)
 
 
 def label_free_loops(module: cst.Module) -> frozenset[int]:

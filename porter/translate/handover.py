@@ -409,6 +409,16 @@ def pandas_fallback(call: PandasCall, source: Callable[[cst.CSTNode], str],
                 for i, arg in enumerate(node.args)])  # type: ignore[attr-defined]
             return Code(cst.Module([]).code_for_node(new))
         if isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute) \
+                and call.receiver is None and node.func.attr.value == "read_csv" \
+                and not any(arg.star for arg in node.args):
+            # read_csv's options pandas 2 and 3 removed (squeeze=, error_bad_lines=,
+            # date_parser=, parse_dates joining columns): read as pandas 1.5 read them
+            from porter.rules.legacy import modern_read_csv_call
+            modern = modern_read_csv_call([(arg.keyword.value if arg.keyword else None,
+                                            source(arg.value)) for arg in node.args])
+            if modern is not None:
+                return Code(modern)
+        if isinstance(node, cst.Call) and isinstance(node.func, cst.Attribute) \
                 and call.receiver is not None:
             # a method pandas 3 removed (rules/legacy.py): written as pandas 3.1 spells it, as
             # the kept call runs on pandas 3.1

@@ -14,7 +14,8 @@ from porter.rules.datetimes import (
 from porter.rules.handover import TEXT_DEFINITION, TEXT_FUNCTION
 from porter.translate.handover import VALUES_DEFINITION, VALUES_FUNCTION
 from porter.rules.elementwise import DISTINCT_DEFINITION, DISTINCT_FUNCTION
-from porter.rules.legacy import APPEND_DEFINITION, APPEND_FUNCTION
+from porter.rules.legacy import (APPEND_DEFINITION, APPEND_FUNCTION, READ_CSV_DEFINITION,
+                                 READ_CSV_FUNCTION)
 from porter.rules.strings import (
     TITLE_DEFINITION, TITLE_FUNCTION, UPPER_DEFINITION, UPPER_FUNCTION, WHITESPACE_CONSTANT,
     WHITESPACE_DEFINITION,
@@ -179,7 +180,8 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
                                  (ROW_SUM_FUNCTION, ROW_SUM_DEFINITION),
                                  (DISTINCT_FUNCTION, DISTINCT_DEFINITION),
                                  (VALUES_FUNCTION, VALUES_DEFINITION),
-                                 (APPEND_FUNCTION, APPEND_DEFINITION)):
+                                 (APPEND_FUNCTION, APPEND_DEFINITION),
+                                 (READ_CSV_FUNCTION, READ_CSV_DEFINITION)):
         if function not in used or _defines(module, function):
             continue
         body = _insert_after_imports(body, _function(definition))
@@ -197,7 +199,8 @@ def fix_imports(module: cst.Module, facts: ImportFacts, original: cst.Module | N
 
 
 class _PandasNumpy(cst.CSTTransformer):
-    """pd.np -> np wherever the conversion still has it (a statement kept on pandas)."""
+    """pd.np -> np and pd.datetime -> datetime.datetime wherever the conversion still has
+    them (a statement kept on pandas)."""
 
     def __init__(self, pandas: set[str], numpy: str) -> None:
         self.pandas, self.numpy = pandas, numpy
@@ -206,6 +209,10 @@ class _PandasNumpy(cst.CSTTransformer):
         if updated.attr.value == "np" and isinstance(updated.value, cst.Name) \
                 and updated.value.value in self.pandas:
             return cst.Name(self.numpy)
+        if updated.attr.value == "datetime" and isinstance(updated.value, cst.Name) \
+                and updated.value.value in self.pandas:
+            # pd.datetime (pandas' re-export of datetime.datetime, removed in pandas 2.0)
+            return cst.parse_expression('__import__("datetime").datetime')
         return updated
 
 
@@ -213,7 +220,8 @@ def _numpy_through_pandas(module: cst.Module, facts: ImportFacts) -> cst.Module:
     """pandas' re-export of numpy (pd.np, removed in pandas 2.0) written as numpy itself, in
     the code porter kept as the script wrote it too: pandas 3 has no pd.np."""
     pandas = {n for n, q in facts.names.items() if q == "pandas"}
-    if not pandas or ".np" not in module.code:
+    if not pandas or ".np" not in module.code and not any(
+            f"{name}.datetime" in module.code for name in pandas):
         return module
     numpy = next((n for n, q in facts.names.items() if q == "numpy"), "np")
     return module.visit(_PandasNumpy(pandas, numpy))
