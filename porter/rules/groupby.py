@@ -1416,8 +1416,11 @@ def series_reduce(call: PandasCall, ctx: RuleContext) -> Value:
         # numpy's value where Polars' is not a float: the min/max of no integers is NaN there
         # as in pandas (None from item()), a mean of a column of unknown type a numpy float
         numpy = column.dtype == "int" or column.dtype is None and how not in ("min", "max")
-        return scalar_of(column, expr, collected=_nan_when_empty(column, how, expr, ctx),
-                         numpy=numpy)
+        scalar = scalar_of(column, expr, collected=_nan_when_empty(column, how, expr, ctx),
+                           numpy=numpy)
+        if column.number and how in ("mean", "median", "std", "var") and scalar.pytype is None:
+            scalar = replace(scalar, pytype="float")  # of numbers (Frame.numbers): a float
+        return scalar
     # a count, or a sum of integers or booleans, is a Python int (stored as a column: Int64)
     whole = how in ("count", "nunique") or how == "sum" and column.dtype in ("int", "bool")
     scalar = scalar_of(column, expr, "int" if whole else None, numpy=column.dtype is None)
@@ -1628,7 +1631,9 @@ def _total_of_unknown_type(column: Column, code: Code, expr: Code, how: str) -> 
     inside = emit.call(TOTAL_EXPR_FUNCTION, code, *(["mean"] if how == "mean" else []))
     agg_column = Column(inside, frame=column.frame, name=column.name, refs=column.refs,
                         versions=column.versions)
-    return Scalar(value, agg=agg_column)
+    # the mean of numbers, int64 or float64 (Frame.numbers), is a float either way
+    return Scalar(value, pytype="float" if how == "mean" and column.number else None,
+                  agg=agg_column)
 
 
 def _numpy_mean(column: Column, code: Code, expr: Code) -> Scalar:
