@@ -228,6 +228,15 @@ def _parses(text: str) -> bool:
 
 def layout_chain(code: Code, indent: str, prefix: str, suffix: str = "") -> str:
     """`prefix + code + suffix`, broken into one step per line when it does not fit."""
+    if "\n" in code.text and any(line.count(".collect()") > 1 for line in code.text.splitlines()):
+        # code laid out over several lines as the script wrote it, one of which now runs two
+        # plans: laid out again from one line (never when a comment sits inside it)
+        # (kept as written where the line cannot be broken up: a conditional, a tuple)
+        flat = _flattened(code.text)
+        if flat is not None:
+            laid_out = layout_chain(Code(flat, code.prec), indent, prefix, suffix)
+            if not any(line.count(".collect()") > 1 for line in laid_out.splitlines()):
+                return laid_out
     if "\n" in code.text and not _parses(code.text):
         code = Code(f"({code.text})")
     one_line = f"{prefix}{code.text}{suffix}"
@@ -261,6 +270,60 @@ def layout_chain(code: Code, indent: str, prefix: str, suffix: str = "") -> str:
         lines += _split_step(step, LINE_LENGTH - len(indent) - 4)
     lines.append(f"){suffix}")
     return "\n".join(lines)
+
+
+def _flattened(text: str) -> str | None:
+    """An expression written over several lines, on one line: each line break inside its
+    brackets becomes a space after a comma or around an operator, nothing elsewhere. None
+    when it holds a comment, or when the line read otherwise (not the same expression)."""
+    import ast
+    import libcst as cst
+
+    try:
+        tree = cst.parse_expression(text)
+        before = ast.dump(ast.parse(text, mode="eval"))
+    except (cst.ParserSyntaxError, SyntaxError):
+        return None
+
+    class Flatten(cst.CSTTransformer):
+        comments = False
+
+        def visit_Comment(self, node: cst.Comment) -> bool:
+            self.comments = True
+            return False
+
+        def on_leave(self, original: Any, updated: Any) -> Any:
+            if isinstance(updated, cst.ParenthesizedWhitespace):
+                return updated  # replaced by its owner below
+            changes = {}
+            for name in ("whitespace_before", "whitespace_after", "whitespace_before_args",
+                         "whitespace_after_func", "whitespace_after_arg", "whitespace_after_param",
+                         "whitespace_before_value", "whitespace_after_colon",
+                         "whitespace_before_colon", "whitespace_after_star",
+                         "whitespace_after_lambda", "whitespace_before_if",
+                         "whitespace_after_if", "whitespace_before_else",
+                         "whitespace_after_else", "whitespace_before_in", "whitespace_after_in",
+                         "whitespace_before_for", "whitespace_after_for"):
+                value = getattr(updated, name, None)
+                if isinstance(value, cst.ParenthesizedWhitespace):
+                    spaced = isinstance(updated, cst.Comma) and name == "whitespace_after" \
+                        or "if" in name or "else" in name or "for" in name or "in" in name \
+                        or "lambda" in name or isinstance(updated, (
+                            cst.BaseBinaryOp, cst.BaseBooleanOp, cst.BaseCompOp))
+                    changes[name] = cst.SimpleWhitespace(" " if spaced else "")
+            return updated.with_changes(**changes) if changes else updated
+
+    flatten = Flatten()
+    flat = tree.visit(flatten)
+    if flatten.comments:
+        return None
+    result = cst.Module([]).code_for_node(flat)
+    try:
+        if "\n" in result or ast.dump(ast.parse(result, mode="eval")) != before:
+            return None
+    except SyntaxError:
+        return None
+    return result
 
 
 def _chain_lines(text: str, indent: str, prefix: str, suffix: str) -> str | None:

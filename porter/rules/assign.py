@@ -25,7 +25,8 @@ from porter.rules.ops import (
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, derive, derived_column,
     row_labels_carried,
-    floats_where_missing, mark_float_ints, nullable_mark, set_nullable_ints, with_column_updates,
+    floats_where_missing, mark_float_ints, mark_numbers, nullable_mark, set_nullable_ints,
+    with_column_updates,
 )
 from porter.rules.strings import LIST_STR, expanded_columns, list_repr
 from porter.translate.handover import (makes_periods, makes_python_ints, orders_categories,
@@ -616,7 +617,12 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
         if isinstance(value, Column) and value.float_int is not None:
             # still float64 in pandas when a value went missing (lost_float_ints)
             result = mark_float_ints(result, [key.const], value.float_int)
-        return typed_at_run_time(result, {key.const: value}) or result
+        result = typed_at_run_time(result, {key.const: value}) or result
+        if isinstance(value, Column) and value.number and dtype is None \
+                and value.frame.rows == frame.rows:
+            # numbers whose type the data decided, as they were (Frame.numbers)
+            result = mark_numbers(result, [key.const])
+        return result
     if isinstance(key, Opaque) and isinstance(key.const, list) and key.const \
             and all(isinstance(k, str) for k in key.const) \
             and isinstance(value, Opaque) and value.is_const \

@@ -24,7 +24,7 @@ from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules import rule
 from porter.rules.io_options import ROW_FUNCTION, float_text
-from porter.rules.ops import abs_, compare, int64_branches, int64_lit, may_hold_nan, round_
+from porter.rules.ops import abs_, clip, compare, int64_branches, int64_lit, may_hold_nan, round_
 from porter.rules.strings import LIST_STR
 from porter.rules.totals import VALUE, column_totals, pandas_median, pandas_reduce
 from porter.translate.context import (
@@ -1531,6 +1531,27 @@ def np_same_as_method(call: PandasCall, ctx: RuleContext) -> Value:
             raise Unsupported("np.abs of a True/False column")
         result = abs_(PandasCall(column, "abs", (), {}, call.node), ctx)
     return _as_element(result, column)
+
+
+@rule("np.clip")
+def np_clip(call: PandasCall, ctx: RuleContext) -> Value:
+    """np.clip(s, lower, upper) -> what s.clip(lower, upper) gives (.clip(lower, upper)).
+
+    Handles: numpy hands a Series to its own clip method (np.clip calls s.clip(a_min, a_max)),
+    so the values, the types and the bounds the wrong way round are pandas' Series.clip's;
+    a None bound is no bound, as there.
+    Caveats: a frame (np.clip(df, ...)), out= and numpy's min= / max= spellings are TODOs.
+    """
+    ctx.reject_unknown(call, "a", "a_min", "a_max", positional=3)
+    column = call.arg("a", 0)
+    if not isinstance(column, Column):
+        raise Unsupported("np.clip of something other than a column")
+    if not (call.has("a_min", 1) and call.has("a_max", 2)):
+        raise Unsupported("np.clip without both bounds (numpy requires them)")
+    if column.dtype in ("str", "bool", "datetime", "date", "category", "enum"):
+        raise Unsupported(f"np.clip of a {column.dtype} column")
+    bounds = (call.arg("a_min", 1), call.arg("a_max", 2))
+    return _as_element(clip(PandasCall(column, "clip", bounds, {}, call.node), ctx), column)
 
 
 # numpy functions of a column that Polars evaluates with numpy itself (`np.log(pl.col("v"))`

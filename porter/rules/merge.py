@@ -18,7 +18,7 @@ from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate import handover
 from porter.translate.context import (
-    PandasCall, RuleContext, Unsupported, floats_where_missing, nullable_mark,
+    PandasCall, RuleContext, Unsupported, floats_where_missing, mark_numbers, nullable_mark,
     ROW_LABELS, labelled_frame, row_labels_carried,
 )
 from porter.translate.values import NOT_NULLABLE, Column, Frame, FrameList, Opaque, Scalar, Value
@@ -255,10 +255,14 @@ def _merge(left: Any, args: PandasCall, ctx: RuleContext) -> Value:
     index = lside.index if lside.index and rside.index else ()
     if carried:  # the left rows' labels, carried in the column "index" (pandas' unnamed index)
         index = (ROW_LABELS,)
-    return Frame(code, columns=columns, labels_intact=not labels_from_left, float_ints=float_ints, **marks,
-                 index=index, index_unnamed=carried,
-                 dtypes=tuple((c, dtypes[c]) for c in columns if c in dtypes)
-                 if columns is not None else tuple(dtypes.items()))
+    result = Frame(code, columns=columns, labels_intact=not labels_from_left, float_ints=float_ints,
+                   **marks, index=index, index_unnamed=carried,
+                   dtypes=tuple((c, dtypes[c]) for c in columns if c in dtypes)
+                   if columns is not None else tuple(dtypes.items()))
+    # the int columns given pandas' type once the join ran hold numbers either way (Float64
+    # where a row found no match, Int64 otherwise): select_dtypes("number") picks them, and a
+    # fill keeps the type the join gave them (missing.series_fillna)
+    return mark_numbers(result, ints) if ints else result
 
 
 _SIDE_MARKS = ("_in_left", "_in_right")

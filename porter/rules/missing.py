@@ -283,6 +283,16 @@ def series_fillna(call: PandasCall, ctx: RuleContext) -> Value:
         if column.dtype is None and _kind_of(value.const) in ("str", "number"):
             ctx.lower("the column type is not known: a fill value of another type makes a mixed "
                       "column in pandas, text in Polars", 0.85)
+    if column.number and column.dtype is None and isinstance(column.name, str) \
+            and column.code.text == emit.col(column.name).text and _number_fill(value):
+        # numbers whose type the data decided (Frame.numbers: int64 where a merge matched every
+        # row, float64 where it left one missing), Polars' type pandas' own: pandas fills an
+        # int64 column with nothing and keeps it int64, where fill_null(0.5) would make it
+        # Float64, so the column keeps its type (an Int64 column has no null to fill)
+        code = column.code.method("fill_null", fill_value(value, column.frame, ctx))
+        if not _int_fill(value):  # an int keeps Int64 Int64 and Float64 Float64 as it is
+            code = code.method("cast", emit.pl("dtype_of", column.name))
+        return replace(derived_column(column, code, others=[value]), number=True)
     dtype = column.dtype
     if column.dtype == "int" and isinstance(value, Opaque) and isinstance(value.const, float) \
             and value.const.is_integer():
@@ -335,6 +345,23 @@ def _untyped_fill(value: Value) -> bool:
 def _short(value: Value) -> str:
     text = value.code.text
     return text if len(text) <= 40 else text[:37] + "..."
+
+
+def _number_fill(value: Value) -> bool:
+    """A fill value that is a number: an int or a float, as a constant, a scalar or a column."""
+    if isinstance(value, Opaque) and value.is_const:
+        return isinstance(value.const, (int, float)) and not isinstance(value.const, bool)
+    return isinstance(value, Column) and (value.dtype in ("int", "float") or value.number) \
+        or isinstance(value, Scalar) and value.pytype in ("int", "float")
+
+
+def _int_fill(value: Value) -> bool:
+    """A fill value that is a whole number of an integer type, as a constant, a scalar or a
+    column: filled into an Int64 or a Float64 column, it keeps the column's type."""
+    if isinstance(value, Opaque) and value.is_const:
+        return isinstance(value.const, int) and not isinstance(value.const, bool)
+    return isinstance(value, Column) and value.dtype == "int" \
+        or isinstance(value, Scalar) and value.pytype == "int"
 
 
 def _float_fill(value: Value) -> bool:

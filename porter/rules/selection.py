@@ -16,7 +16,8 @@ from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import (
     ROW_LABELS, PandasCall, RuleContext, Unsupported, column_names, column_of, derive,
-    nullable_columns, row_labels_carried, select_columns, values_fixed, with_row_labels,
+    holds_numbers, nullable_columns, row_labels_carried, select_columns, values_fixed,
+    with_row_labels,
 )
 from porter.translate.handover import series_frame, to_pandas
 
@@ -1873,12 +1874,14 @@ def select_dtypes(call: PandasCall, ctx: RuleContext) -> Value:
     exclude = _dtype_selectors(call, "exclude", 1)
     if not include and not exclude:
         raise Unsupported("select_dtypes with neither include nor exclude (pandas raises)")
-    if frame.columns is None or any(frame.dtype(c) is None for c in frame.columns):
+    # numbers whose type the data decides (int64 or float64, Frame.numbers) are numbers either
+    # way: "number" picks them, and they are neither text, dates nor categories
+    kinds = {c: "int" if holds_numbers(frame, c) else frame.dtype(c) for c in frame.columns or ()}
+    if frame.columns is None or any(kinds[c] is None for c in frame.columns):
         raise Unsupported("a frame with a column whose type porter does not know")
     if frame.index or frame.column_pairs or frame.number_labels:
         raise Unsupported("a frame with an index of its own, or column names of two levels or "
                           "numbers")
-    kinds = {c: frame.dtype(c) for c in frame.columns}
     if "bool" in kinds.values() and (include | exclude) & {"object", "O"}:
         raise Unsupported("\"object\" beside a True/False column, which pandas holds as object "
                           "once a value is missing")

@@ -250,6 +250,10 @@ def derive(frame: Frame, code: Code, *, same_rows: bool, **changes: Any) -> Fram
     if not same_rows:
         changes.setdefault("rows", fresh_token())
         changes.setdefault("labels_intact", False)
+    if "dtypes" in changes:
+        # the step says what the columns are now: numbers whose type the data decided stay
+        # so only where the step keeps them as they were (select_columns)
+        changes.setdefault("numbers", ())
     return replace(frame, code=code, sites=(), **changes)
 
 
@@ -260,7 +264,8 @@ def with_column_updates(frame: Frame, code: Code, updates: dict[str, str | None]
         columns = columns + tuple(c for c in updates if c not in columns)
     dtypes = dict(frame.dtypes)
     versions = dict(frame.versions)
-    frame = replace(frame, float_ints=tuple(m for m in frame.float_ints if m[0] not in updates))
+    frame = replace(frame, float_ints=tuple(m for m in frame.float_ints if m[0] not in updates),
+                    numbers=tuple(m for m in frame.numbers if m[0] not in updates))
     if frame.nullable_ints is not None:
         # a column written here is one of pandas' nullable integers only if made from one
         # (the rule that knows marks it: set_nullable_ints); in a frame that holds none, it
@@ -281,7 +286,8 @@ def with_column_updates(frame: Frame, code: Code, updates: dict[str, str | None]
 def select_columns(frame: Frame, code: Code, names: Sequence[str], *, same_rows: bool = True) -> Frame:
     dtypes = {k: v for k, v in frame.dtypes if k in names}
     result = derive(frame, code, same_rows=same_rows, columns=tuple(names),
-                    dtypes=tuple(dtypes.items()))
+                    dtypes=tuple(dtypes.items()),
+                    numbers=tuple(m for m in frame.numbers if m[0] in names))
     return replace(result, index=tuple(i for i in frame.index if i in names))
 
 
@@ -364,7 +370,22 @@ def column_of(frame: Frame, name: str, code: Code | None = None) -> Column:
         versions=((name, frame.version(name)),),
         float_int=dict(frame.float_ints).get(name),
         nullable_int=nullable_mark(frame, name),
+        number=holds_numbers(frame, name),
     )
+
+
+def holds_numbers(frame: Frame, name: str) -> bool:
+    """Column `name` of `frame` is of a type porter does not know but holds numbers, int64 or
+    float64 as the data decides, its Polars type pandas' own (Frame.numbers): marked so, and
+    not written since."""
+    return frame.dtype(name) is None and (name, frame.version(name)) in frame.numbers
+
+
+def mark_numbers(frame: Frame, names: Sequence[str]) -> Frame:
+    """`frame` with the columns `names`, as they are now, marked as holding numbers whose type
+    the data decides (Frame.numbers)."""
+    kept = tuple(m for m in frame.numbers if m[0] not in names)
+    return replace(frame, numbers=kept + tuple((n, frame.version(n)) for n in names))
 
 
 # -- pandas' nullable integer columns ---------------------------------------------------------

@@ -608,7 +608,7 @@ def hand_over_module_frames(walker: Any, stmt: cst.CSTNode, env: dict[str, Value
             frame = None if name in declared or not isinstance(value, Frame) else \
                 after_change(name, value, None, "setitem" if name in changed else "")
             if frame is not None and name in changed:
-                frame = replace(frame, columns=None, dtypes=())
+                frame = replace(frame, columns=None, dtypes=(), numbers=())
             env[name] = PandasValue(emit.atom(name), frame=frame)
             handed.append(f"`{name}` ({function}())")
         for name in sorted(names - left - declared):

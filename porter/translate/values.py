@@ -108,6 +108,11 @@ class Frame(Value):
     # those nulls. Each with what made it so; a step that removes the nulls (fillna, dropna, a
     # filter, a group key) lowers its confidence and clears the mark (lost_float_ints)
     float_ints: tuple[tuple[str, str], ...] = field(default=(), kw_only=True)
+    # columns whose type porter does not know but which hold numbers, int64 or float64 as the
+    # data decides, with Polars' type pandas' own (a merge that may leave a row unmatched made
+    # an int column Float64 where it did: rules/merge.py), each with the column's version
+    # then; a column written since is no longer one (context.holds_numbers)
+    numbers: tuple[tuple[str, Any], ...] = field(default=(), kw_only=True)
     # columns pandas holds as its nullable integers (astype("Int64"), dtype={"c": "Int64"},
     # dt.isocalendar() parts), each with pandas' dtype name: with a missing value pandas
     # writes and prints them as ints (2024, <NA>) where a plain int column is float64 (2024.0,
@@ -164,6 +169,9 @@ class Column(Value):
     # pandas' nullable integer dtype of the column ("Int64", "UInt32"; Frame.nullable_ints),
     # NOT_NULLABLE when it is known not to be one, None when porter does not know
     nullable_int: str | None = field(default=None, kw_only=True)
+    # of a type porter does not know, but numbers, int64 or float64 as the data decides, with
+    # Polars' type pandas' own (Frame.numbers)
+    number: bool = field(default=False, kw_only=True)
     # the values of a pandas Index (s.index, df.index of one key) and what is computed from
     # them: an Index has no labels, so idx[0] is the first value by position (never the row
     # whose key is 0), and it goes over to pandas as an Index, not a Series labelled by itself
