@@ -35,6 +35,8 @@ SHAPES = [
     'print(df.iloc[-1].to_dict())',
     'print(df.iloc[1, :])',
     'row = df.iloc[2]\nprint(row.name, row.dtype, list(row.index))',
+    'row = df.loc[1]\nprint(row["port"], row.name)\nprint(row)',
+    'print(df.loc[3, :].to_dict())',
 ]
 
 
@@ -88,6 +90,17 @@ def test_a_row_after_a_filter_keeps_its_label(tmp_path: Path) -> None:
         df = pd.read_csv("crossings.csv")
         kiel = df[df["port"] == "Kiel"]
         print(kiel.iloc[-1])
+    '''
+    same_text(source, tmp_path, {"crossings.csv": CROSSINGS})
+
+
+def test_a_row_by_label_after_a_sort_reads_the_label_not_the_position(tmp_path: Path) -> None:
+    source = '''\
+        import pandas as pd
+        df = pd.read_csv("crossings.csv")
+        by_cars = df.sort_values("cars")
+        print(by_cars.loc[0])
+        print(by_cars.iloc[0])
     '''
     same_text(source, tmp_path, {"crossings.csv": CROSSINGS})
 

@@ -383,6 +383,13 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     elif (_one_label(rows) or _label_read(rows, frame)) and isinstance(cols, Opaque) \
             and isinstance(cols.const, str):
         return _labelled_value(frame, rows, cols, ctx)  # df.loc["label", "c"], as df.at
+    elif isinstance(rows, Opaque) and type(rows.const) is int and rows.const >= 0 \
+            and not frame.index and frame.labels_intact \
+            and (cols is None or isinstance(cols, Opaque) and cols.const == slice(None)):
+        # df.loc[2] of a frame still labelled 0..n-1: the row at that position, pandas' row
+        # Series as df.iloc[2] gives it (a label past the rows: OutOfBoundsError where pandas
+        # raises KeyError)
+        return _row_at(frame, emit.lit(rows.const), ctx)
     elif (_one_label(rows) or _label_tuple(rows)) \
             and (cols is None or isinstance(cols, Opaque) and cols.const == slice(None)):
         assert isinstance(rows, Opaque)
