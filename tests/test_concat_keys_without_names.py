@@ -113,3 +113,17 @@ def test_written_files_match_pandas(tmp_path: Path, with_data: bool) -> None:
         print(both.reset_index()["level_1"].tolist())
     '''
     same_text(source, tmp_path, SHEETS, with_data=with_data)
+
+
+def test_pieces_carrying_their_labels_are_written_under_an_empty_header(tmp_path: Path) -> None:
+    # without keys=: the labels a filter left stay pandas' unnamed index, which to_csv writes
+    # under an empty header (not "index")
+    source = '''\
+        import pandas as pd
+        a = pd.read_csv("room_a.csv")
+        heavy = a[a["grams"] > 10]
+        light = a[a["grams"] <= 10]
+        both = pd.concat([heavy, light])
+        both.to_csv("both.csv")
+    '''
+    same_text(source, tmp_path, SHEETS)

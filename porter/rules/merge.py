@@ -940,7 +940,9 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
         "nullable_ints": tuple((c, m) for c, m in nullable.items() if m),
         "unsure_ints": tuple(c for c, m in nullable.items() if m is None)}
     return Frame(code, columns=columns, dtypes=dtypes, index=index,
-                 index_unnamed=keyed and frames[0].index_unnamed,
+                 # (labels a filter or sort left stay pandas' unnamed index: to_csv writes
+                 # them under an empty header)
+                 index_unnamed=bool(index) and all(f.index_unnamed for f in frames),
                  labels_intact=ignore_index or len(frames) == 1 and frames[0].labels_intact,
                  sites=tuple(s for f in frames for s in f.sites), **marks)
 
