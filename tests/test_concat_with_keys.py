@@ -43,10 +43,10 @@ def test_concat_with_keys_matches_pandas(source: str) -> None:
 
 
 @pytest.mark.parametrize("source", [
-    # the inner level would be the labels a filter left
-    'result = pd.concat([east[east["hours"] > 1], west], keys=["e", "w"], names=["b", "l"]).reset_index()',
-    # unnamed levels: level_0 / level_1 where the index is put back
-    'result = pd.concat([east, west], keys=["e", "w"]).reset_index()',
+    # one level named, the other not (porter marks a whole index unnamed or not)
+    'result = pd.concat([east, west], keys=["e", "w"], names=["b"]).reset_index()',
+    # keys that are not one text per piece
+    'result = pd.concat([east, west], keys=[1, 2], names=["b", "l"]).reset_index()',
 ])
 def test_other_keyed_concats_are_todos_that_run(source: str) -> None:
     result = differential(HEAD + source + "\n")

@@ -50,11 +50,22 @@ print(out.columns.tolist())
     assert "TODO(porter)" not in text, text
 
 
-def test_a_frame_labelled_by_row_numbers_stays_a_todo(tmp_path: Path) -> None:
+def test_a_frame_of_numbers_labelled_by_row_numbers_is_transposed(tmp_path: Path) -> None:
+    # pandas' columns are the integers 0..n-1: Polars' "0", "1", ... written the same
     text = same_text('''\
 import pandas as pd
 readings = pd.read_csv("readings.csv")
 readings[["cm", "day"]].head(3).T.to_csv("out.csv")
+''', tmp_path, {"readings.csv": _readings(10)}).converted_text
+    assert "TODO(porter)" not in text, text
+
+
+def test_a_frame_of_text_labelled_by_row_numbers_stays_a_todo(tmp_path: Path) -> None:
+    # text beside numbers: an object frame in pandas
+    text = same_text('''\
+import pandas as pd
+readings = pd.read_csv("readings.csv")
+readings[["stake", "day"]].head(3).T.to_csv("out.csv")
 ''', tmp_path, {"readings.csv": _readings(10)}).converted_text
     assert "TODO(porter)" in text, text
 

@@ -75,7 +75,7 @@ OPS = [
  'result = g["cars"].sort_values().to_frame()', 'result = g["cars"].nlargest(2).to_frame()',
  'result = g.query("cars > 5")', 'result = g.filter(like="ca")', 'result = g.select_dtypes("number")',
  'result = g.agg(["sum", "max"])', 'result = g.corr()', 'result = g.eq(g).all().tolist()',
- 'result = g.sample(frac=1.0, random_state=0)', 'result = g.tail(2)', 'result = g.nsmallest(1, "fare")',
+ 'result = g.sample(frac=1.0, random_state=0).sort_index()', 'result = g.tail(2)', 'result = g.nsmallest(1, "fare")',
  'result = g.drop(columns=["boats"])', 'result = g.drop(index=["north"])',
  'result = g.loc[g["cars"] > 5, ["fare"]]', 'result = g.loc["east":"south"]', 'result = g.at["north", "cars"]',
  'result = g.iat[0, 0]', 'result = g.explode("boats")', 'result = pd.concat([g, g])', 'result = pd.concat([g, g], axis=1)',

@@ -26,8 +26,9 @@ CASES = [
     'margins=True)',
     'pt = pd.pivot_table(df, index="fibre", columns="shift", values="n", aggfunc="max", '
     'margins=True)\nresult = pt.reset_index()',
-    # a frame handed over to pandas before the pivot (sample's labels read by position)
-    'd = df.sample(n=6, random_state=3)\nd["kg2"] = d["kg"] * 2\n'
+    # a frame handed over to pandas before the pivot (a draw by numpy's RandomState stays
+    # on pandas; its labels read by position)
+    'd = df.sample(n=6, random_state=np.random.RandomState(3))\nd["kg2"] = d["kg"] * 2\n'
     'result = pd.pivot_table(d, values="kg2", index="fibre", columns="shift", aggfunc=np.sum, '
     'fill_value=0)',
 ]

@@ -67,8 +67,8 @@ def test_ports(before: str, expected: str) -> None:
 
 TODOS = [
     pytest.param("r = df.iloc[-3:-1]", "frame.iloc", id="negative slice bounds"),
-    pytest.param("r = df.iloc[0]", "frame.iloc", id="one row by position"),
-    pytest.param("r = df.loc[2]", "frame.loc", id="one row by label"),
+    pytest.param("r = df.iloc[0, 1]", "frame.iloc", id="one value by row and column position"),
+    pytest.param("r = df.loc[[0, 2]]", "frame.loc", id="rows by a list of labels"),
     pytest.param("r = df.head(-2)", "frame.head", id="head negative"),
     pytest.param("r = df.tail(-2)", "frame.tail", id="tail negative"),
     pytest.param('r = df.query("grade.str.startswith(\'A\')")', "frame.query", id="query with a method"),

@@ -1524,11 +1524,11 @@ def to_csv(call: PandasCall, ctx: RuleContext) -> Value:
         return _pandas_writes(frame, call, target, ctx,
                               "index=True writes the row labels: handed over to pandas for the "
                               "write")
-    if index and frame.index_unnamed and len(frame.index) == 1 \
+    if index and frame.index_unnamed \
             and call.const("header", None, True, kinds=(bool, list, tuple)) is not False:
-        # pandas writes an unnamed index (describe's statistics) under an empty header
-        # (",a"); Polars' writer quotes an empty column name ('"",a'): pandas writes the file
-        # (a table of a few rows)
+        # pandas writes an unnamed index (describe's statistics, both levels of
+        # pd.concat(keys=)) under empty headers (",a", ",,a"); Polars' writer quotes an empty
+        # column name ('"",a') and a frame cannot hold two: pandas writes the file
         return _pandas_writes(frame, call, target, ctx,
                               "the unnamed index is written under an empty header, which Polars "
                               "quotes: handed over to pandas for the write")

@@ -944,6 +944,9 @@ def concat(call: PandasCall, ctx: RuleContext) -> Value:
         "nullable_ints": tuple((c, m) for c, m in nullable.items() if m),
         "unsure_ints": tuple(c for c, m in nullable.items() if m is None)}
     return Frame(code, columns=columns, dtypes=dtypes, index=index,
+                 # (labels a filter or sort left stay pandas' unnamed index: to_csv writes
+                 # them under an empty header)
+                 index_unnamed=bool(index) and all(f.index_unnamed for f in frames),
                  labels_intact=ignore_index or len(frames) == 1 and frames[0].labels_intact,
                  sites=tuple(s for f in frames for s in f.sites), **marks)
 
@@ -1067,37 +1070,74 @@ ROW_LABELS_COLUMN = "index"
 
 def _keyed_frames(frames: list[Frame], listed: Code | None, call: PandasCall,
                   ctx: RuleContext) -> list[Frame]:
-    """pd.concat(frames, keys=[...], names=[outer, inner]): pandas labels each row with the key
-    of its piece and its own label there, a two-level index named `names`. Each piece, still
-    labelled 0..n-1, is given both as index columns (the key, its row number), so that
-    reset_index() puts them first, as pandas does."""
+    """pd.concat(frames, keys=[...], names=[...]): pandas labels each row with the key of its
+    piece and its own label there, a two-level index. Each piece is given both as index
+    columns (the key, its label), so that reset_index() puts them first, as pandas does.
+
+    The inner level is the piece's row number (labels 0..n-1), the label a filter or sort
+    left (carried in its column "index"), or the key that labels it (set_index, a groupby's).
+    The levels are named by names=, else the outer one has no name and the inner one the
+    pieces' index name where they all share one: without names=, two unnamed levels are held
+    as columns "level_0" and "level_1", the names reset_index() gives them (index_unnamed).
+    One level named and the other not is a TODO (porter marks a whole index unnamed or not)."""
     keys = call.const("keys", None, None)
     names = call.const("names", None, None)
     if listed is not None or not (isinstance(keys, (list, tuple)) and len(keys) == len(frames)
                                   and all(isinstance(k, str) for k in keys)):
         raise ctx.todo("keys= other than one text per frame written in the list: add a column "
                        "per frame (with_columns(pl.lit(key))) before the concat")
-    if not (isinstance(names, (list, tuple)) and len(names) == 2
-            and all(isinstance(n, str) for n in names) and names[0] != names[1]):
-        raise ctx.todo("keys= without names= for both levels of the MultiIndex (pandas names "
-                       "them level_0, level_1 only where the index is put back): add a column "
-                       "per frame (with_columns(pl.lit(key))) before the concat")
-    outer, inner = names
+    if names is None:
+        names = [None, None]
+    if not (isinstance(names, (list, tuple)) and 1 <= len(names) <= 2
+            and all(n is None or isinstance(n, str) for n in names)):
+        raise ctx.todo("names= other than one or two texts")
+    inners = [_inner_level(frame, ctx) for frame in frames]
+    labels = {label for label, _ in inners}
+    inner_name = labels.pop() if len(labels) == 1 else None  # pandas: None where they differ
+    outer = names[0]
+    inner = names[1] if len(names) == 2 and names[1] is not None else inner_name
+    if outer is None and inner is None:
+        outer, inner = "level_0", "level_1"  # reset_index()'s names for unnamed levels
+        unnamed = True
+    elif outer is None or inner is None:
+        raise ctx.todo("one level of the keys' MultiIndex named and the other not: give "
+                       "names= for both levels")
+    else:
+        unnamed = False
+    if outer == inner:
+        raise ctx.todo("two levels of one name")
     keyed = []
-    for frame, key in zip(frames, keys):
-        if frame.index or not frame.labels_intact:
-            raise ctx.todo("a piece whose row labels are no longer 0..n-1 (or that keeps an "
-                           "index): its labels are the inner level")
-        if frame.columns is None or {outer, inner} & set(frame.columns):
+    for frame, key, (_, source) in zip(frames, keys, inners):
+        if frame.columns is None:
             raise ctx.todo("a piece whose columns porter does not know, or with a column named "
                            "like a level")
+        data = [c for c in frame.columns if c not in frame.index]
+        if {outer, inner} & set(data):
+            raise ctx.todo("a piece with a column named like a level of the keys' index "
+                           "(pandas' reset_index() raises)")
         code = frame.code.method("select", emit.pl("lit", key).method("alias", outer),
-                                 emit.pl("int_range", emit.pl("len"), dtype=emit.atom("pl.Int64"))
-                                 .method("alias", inner), emit.pl("all"))
-        keyed.append(replace(frame, code=code, columns=(outer, inner, *frame.columns),
-                             dtypes=((outer, "str"), (inner, "int"), *frame.dtypes),
-                             index=(outer, inner), labels_intact=False))
+                                 source.method("alias", inner), *data)
+        kind = "int" if not frame.index else frame.dtype(frame.index[0])
+        keyed.append(replace(frame, code=code, columns=(outer, inner, *data),
+                             dtypes=((outer, "str"), (inner, kind),
+                                     *((c, t) for c, t in frame.dtypes if c in data)),
+                             index=(outer, inner), index_unnamed=unnamed, labels_intact=False))
     return keyed
+
+
+def _inner_level(frame: Frame, ctx: RuleContext) -> tuple[str | None, Code]:
+    """The inner level pd.concat(keys=) gives a piece's rows, and its name: the row numbers of
+    a piece labelled 0..n-1 (no name), the labels a filter or sort left (no name), or the one
+    key labelling it (its name)."""
+    if not frame.index and frame.labels_intact:
+        return None, emit.pl("int_range", emit.pl("len"), dtype=emit.atom("pl.Int64"))
+    if row_labels_carried(frame):
+        return None, emit.col(ROW_LABELS)
+    if len(frame.index) == 1 and not frame.index_unnamed and frame.dtype(frame.index[0]) in (
+            "str", "int", "date", "datetime", "bool"):
+        return frame.index[0], emit.col(frame.index[0])
+    raise ctx.todo("a piece whose row labels porter does not keep (after a filter or sort), "
+                   "or labelled by several keys: its labels are the inner level")
 
 
 def _concat_nullable(frames: list[Frame], columns: tuple[str, ...] | None

@@ -799,6 +799,29 @@ def _edge(x: Code, p: float) -> Code:
     return emit.call(QUANTILE_FUNCTION, x, p)
 
 
+def _transposed_row_numbers(frame: Frame) -> Frame:
+    """df.T of a frame of numbers labelled 0..n-1: pandas' columns are the integers 0..n-1 and
+    its unnamed index the old column names. Polars names columns by text: "0", "1", ... held
+    as pandas' integer labels (int_labels_except), which a hand-over to pandas (a write with
+    the index, a print of pandas' frame) makes integers again; a CSV header reads the same."""
+    if frame.column_pairs or frame.columns_name is not None or frame.number_labels \
+            or frame.int_labels_except is not None:
+        raise Unsupported("column names of two levels, with a name of their own, or numbers")
+    kinds = {frame.dtype(c) for c in frame.columns or ()}
+    if not frame.columns or not kinds <= set(_NUMBER_TYPES):
+        raise Unsupported("text, dates, True/False or columns of unknown type: pandas makes an "
+                          "object frame, whose values Polars would make one type (text)")
+    # (Polars transposes into the columns' common type: ints beside floats become Float64,
+    # as pandas' float64; ints only stay Int64, as pandas' int64)
+    transposed = emit.atom("t").method(
+        "transpose", include_header=True, header_name="index",
+        column_names=emit.atom("[str(i) for i in range(t.height)]"))
+    code = frame.code.method("collect").method(
+        "pipe", emit.atom(f"lambda t: {transposed.text}")).method("lazy")
+    return Frame(code, columns=None, index=("index",), labels_intact=False, index_unnamed=True,
+                 int_labels_except=("index",), dtypes=(("index", "str"),))
+
+
 @rule("frame.T", "frame.transpose")
 def transpose(call: PandasCall, ctx: RuleContext) -> Value:
     """df.T / df.transpose() -> collect().transpose(include_header=True, ...), on a table of
@@ -814,9 +837,12 @@ def transpose(call: PandasCall, ctx: RuleContext) -> Value:
     assert isinstance(frame, Frame)
     if call.name == "transpose":
         ctx.reject_unknown(call, "copy")
+    if frame.columns is not None and not frame.index and frame.labels_intact:
+        return _transposed_row_numbers(frame)
     if frame.columns is None or len(frame.index) != 1 or frame.dtype(frame.index[0]) != "str":
-        raise Unsupported("a frame not labelled by one text key: the new column names would be "
-                          "its row labels")
+        raise Unsupported("a frame not labelled by one text key or by its row numbers 0..n-1 "
+                          "(after a filter or sort the new column names would be the rows' "
+                          "old numbers): the new column names would be its row labels")
     if frame.column_pairs or frame.columns_name is not None or frame.number_labels \
             or frame.int_labels_except is not None:
         # two levels of column names (agg with lists) become two levels of row labels, a

@@ -1333,3 +1333,65 @@ def _reindex_product(call: PandasCall, column: Column, target: Opaque, ctx: Rule
                    dtypes=(*((n, frame.dtype(k)) for k, n in zip(keys, names)), (value, dtype)),
                    labels_intact=False, rows=rows, grouped_rows=rows)
     return Column(emit.col(value), frame=result, name=column.name, dtype=dtype)
+
+
+# why a draw is stated at 0.3
+_SAMPLE_REASON = ("Polars draws other rows than pandas whatever the seed (another random "
+                  "generator): the rows, and every value computed from them, match pandas' "
+                  "only by chance; their number, the columns and their types do")
+
+
+@rule("frame.sample")
+def frame_sample(call: PandasCall, ctx: RuleContext) -> Value:
+    """df.sample(n=, frac=, replace=, random_state=) -> collect().sample(n, shuffle=True,
+    with_replacement=, seed=).lazy().
+
+    Handles: n (1 when neither n nor frac is given, as pandas), frac as pandas counts it
+    (round(frac * rows), Python's rounding of halves to even, where Polars' fraction= rounds
+    down), replace=True, an int random_state as the seed (the same rows on every run, as in
+    pandas), the drawn rows in a random order as pandas gives them, ignore_index=True (fresh
+    labels); without it the rows keep their labels, which later label reads carry as after a
+    filter. Too many rows without replace raises in both.
+    Caveats: the rows drawn are not pandas' (0.3): another random generator. weights=, axis=1
+    and a RandomState or Generator as random_state are TODOs.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "n", "frac", "replace", "weights", "random_state", "axis",
+                       "ignore_index", positional=6)
+    if call.has("weights", 3) and call.const("weights", 3, None) is not None:
+        raise ctx.todo("weights=: Polars' sample draws every row alike")
+    if call.const("axis", 5, None, kinds=(int, str, type(None))) not in (None, 0, "index", "rows"):
+        raise ctx.todo("axis=1 draws columns")
+    n = call.const("n", 0, None, kinds=(int, type(None)))
+    frac = call.const("frac", 1, None, kinds=(int, float, type(None)))
+    replace_rows = call.const("replace", 2, False, kinds=(bool,))
+    seed = call.const("random_state", 4, None, kinds=(int, type(None)))
+    if isinstance(seed, bool) or isinstance(n, bool) or isinstance(frac, bool):
+        raise ctx.todo("True/False given for a count or a seed")
+    if n is not None and frac is not None:
+        raise ctx.todo("n and frac together (pandas raises)")
+    if n is not None and n < 0 or frac is not None and (frac < 0 or frac > 1 and not replace_rows):
+        raise ctx.todo("a negative count, or frac above 1 without replace (pandas raises)")
+    options: dict[str, Any] = {"shuffle": True}
+    if replace_rows:
+        options["with_replacement"] = True
+    if seed is not None:
+        options["seed"] = seed
+    collected = frame.code.method("collect")
+    if frac is None:
+        code = collected.method("sample", n if n is not None else 1, **options)
+    else:
+        # pandas draws round(frac * rows) rows; Polars' fraction= rounds down
+        count = emit.call("round", emit.binop(emit.lit(float(frac)), "*", emit.atom("t.height")))
+        drawn = emit.atom("t").method("sample", count, **options)
+        code = collected.method("pipe", emit.atom(f"lambda t: {drawn.text}"))
+    ctx.lower(_SAMPLE_REASON, 0.3)
+    intact = bool(call.const("ignore_index", None, False, kinds=(bool,)))
+    if intact and frame.index:
+        code = code.method("drop", *frame.index)
+        return derive(frame, code.method("lazy"), same_rows=False, labels_intact=True,
+                      index=(), index_unnamed=False,
+                      columns=None if frame.columns is None else tuple(
+                          c for c in frame.columns if c not in frame.index))
+    return derive(frame, code.method("lazy"), same_rows=False, labels_intact=intact)

@@ -273,13 +273,22 @@ def positional_rows(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: column positions count the columns pandas holds as data (not a groupby's keys in
     the index, which stay); a slice of positions with a step or negative bounds as Python
-    slices a list; one position gives the Series.
+    slices a list; one position gives the Series. df.iloc[0] / df.iloc[-1] (one literal row
+    position, every column): that row picked in Polars and handed to pandas as its row
+    Series, named by its label (_row_at).
     """
     frame = frame_of(call)
     keys = call.args
     key = keys[0]
+    if call.name == "iloc" and isinstance(key, Opaque) and type(key.const) is int and (
+            len(keys) == 1 or isinstance(keys[1], Opaque) and keys[1].const == slice(None)):
+        # pandas types the row as it types a row of the frame (the columns' common type:
+        # float64 for ints beside floats, object beside text), which the one-row frame
+        # handed over gives it again
+        return _row_at(frame, emit.lit(key.const), ctx)
     if not (isinstance(key, Opaque) and isinstance(key.const, slice)):
-        raise Unsupported("iloc with a single position returns a row; porter ports row slices")
+        raise Unsupported("iloc with a single position and a column returns a value; porter "
+                          "ports one row (df.iloc[0]) and row slices")
     rows = slice_rows(frame, key.const)
     if len(keys) == 2 and not (isinstance(keys[1], Opaque) and keys[1].const == slice(None)):
         return _columns_at(rows, keys[1], ctx)
@@ -363,7 +372,7 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
         return scalar_of(column, column.code.method("get", rows.position),
                          column.dtype if column.dtype in ("int", "float") else None)
     if isinstance(rows, RowPosition) and rows.current_in(frame) and cols is None:
-        return _row_at(frame, rows, ctx)
+        return _row_at(frame, rows.position, ctx)
     if isinstance(rows, ExtremeLabels) and rows.source.rows == frame.rows \
             and (frame.labels_intact and not frame.index or row_labels_carried(frame)):
         # df.loc[df.groupby(k)["c"].idxmin()]: each group's row of its first smallest value,
@@ -384,6 +393,13 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
     elif (_one_label(rows) or _label_read(rows, frame)) and isinstance(cols, Opaque) \
             and isinstance(cols.const, str):
         return _labelled_value(frame, rows, cols, ctx)  # df.loc["label", "c"], as df.at
+    elif isinstance(rows, Opaque) and type(rows.const) is int and rows.const >= 0 \
+            and not frame.index and frame.labels_intact \
+            and (cols is None or isinstance(cols, Opaque) and cols.const == slice(None)):
+        # df.loc[2] of a frame still labelled 0..n-1: the row at that position, pandas' row
+        # Series as df.iloc[2] gives it (a label past the rows: OutOfBoundsError where pandas
+        # raises KeyError)
+        return _row_at(frame, emit.lit(rows.const), ctx)
     elif (_one_label(rows) or _label_tuple(rows)) \
             and (cols is None or isinstance(cols, Opaque) and cols.const == slice(None)):
         assert isinstance(rows, Opaque)
@@ -492,8 +508,9 @@ def _all(conditions: list[Code]) -> Code:
     return code
 
 
-def _row_at(frame: Frame, row: "RowPosition", ctx: RuleContext) -> Value:
-    """df.loc[df["c"].idxmax()] of the frame the label was read from: that one row, picked in
+def _row_at(frame: Frame, position: Code, ctx: RuleContext) -> Value:
+    """df.loc[df["c"].idxmax()] of the frame the label was read from, or df.iloc[0] /
+    df.iloc[-1] (a literal position): that one row, picked in
     Polars (pl.all().get(position)), handed to pandas with its label (the row number, a label a
     filter or sort left, or the groupby key) as the one-row frame's index, and taken as pandas'
     row Series (.iloc[0]): its values typed as pandas types a row of that frame, named by its
@@ -503,8 +520,11 @@ def _row_at(frame: Frame, row: "RowPosition", ctx: RuleContext) -> Value:
             raise Unsupported("a row of a frame whose columns porter does not know")
         frame = with_row_labels(frame)  # the label of a row is its number
     elif not frame.index:
-        raise Unsupported("rows chosen by index label: the index is not data in Polars")
-    picked = replace(frame, code=frame.code.method("select", emit.pl("all").method("get", row.position)))
+        raise Unsupported("the row's label (its Series' name) is its number before a filter or "
+                          "sort, which porter does not keep here: bind the filtered frame to a "
+                          "name first, or read the row with .row(0, named=True)")
+    # (a position past the rows raises OutOfBoundsError, as pandas raises IndexError)
+    picked = replace(frame, code=frame.code.method("select", emit.pl("all").method("get", position)))
     ctx.handover = True
     chain = to_pandas(picked)
     if chain.base is not None and chain.steps:  # laid out one step per line, .iloc[0] the last

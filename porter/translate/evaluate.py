@@ -677,6 +677,15 @@ class Evaluator:
             elif isinstance(receiver, (Frame, Column)):
                 self.note_labels_read(receiver if isinstance(receiver, Frame) else receiver.frame)
             return
+        if key == "pd.concat" and "keys" in call.kwargs and not _side_by_side(call):
+            # keys= makes each piece's row labels the inner level of the index: a piece
+            # filtered or sorted on the way must hold pandas' own labels
+            pieces = [x for v in call.args[:1]
+                      for x in (v.items if isinstance(v, Items) else (v,))]
+            for piece in pieces:
+                if isinstance(piece, Frame) and not piece.labels_intact and not piece.index:
+                    self.note_labels_read(piece)
+            return
         if key not in _ALIGNING and not (key == "pd.concat" and _side_by_side(call)) \
                 and not _joins_on_labels(key, call):
             return

@@ -197,6 +197,8 @@ def to_pandas(value: Value) -> Code:
             code = _labels(code, value)
             if value.index_unnamed and len(value.index) == 1:
                 code = code.method("rename_axis", None)  # describe's statistics: no name
+            elif value.index_unnamed:  # pd.concat(keys=) without names=: levels without names
+                code = code.method("rename_axis", emit.lit([None] * len(value.index)))
         if value.value_levels:
             # a pivot of several value columns: Polars' "a_x" is pandas' (a, x), the value
             # column, then the key's value (Index.map of pairs makes the two levels)
@@ -254,6 +256,8 @@ def to_pandas(value: Value) -> Code:
                 # pandas' index has no name (pd.Series(..., index=[...])): the key column's
                 # name would show in reset_index(), extractall's levels, a print
                 code = code.method("rename_axis", None)
+            elif value.frame.index_unnamed:
+                code = code.method("rename_axis", emit.lit([None] * len(value.frame.index)))
         elif value.dtype == "category":  # categories sorted, as astype("category") made them
             code = (series_frame(value).method("collect").method("to_series")
                     .method("cast", emit.atom("pl.String")).method("to_pandas").method("astype", "category"))

@@ -66,7 +66,8 @@ def verify(original: str | Path, converted_text: str | None, data_dir: str | Pat
                                    timeout=options.timeout, memory_mib=options.memory_mib,
                                    python=pythons[side])
         result = _judge(sides["original"], sides["converted"], options,
-                        row_names=_row_loop_names(original_text))
+                        row_names=_row_loop_names(original_text),
+                        drawn=random_draws(original_text))
         if options.timing_runs > 0 and result.verdict != "error":
             result = _timed(result, texts, script_rel, data, root, options)
         if environments:
@@ -176,8 +177,122 @@ def _row_loop_names(text: str) -> frozenset[str]:
     return frozenset(names)
 
 
+@dataclass(frozen=True)
+class RandomDraws:
+    """The outputs of a script that draws rows at random (`df.sample(...)`): pandas' draws
+    cannot be repeated by Polars (another generator, whatever the seed), so these outputs are
+    compared by their columns, and by their number of rows where they are the draw itself.
+    `names` maps each variable computed from a draw to whether it is the draw itself;
+    `files` are the paths written from one."""
+
+    names: dict[str, bool]
+    files: frozenset[str]
+
+    def __bool__(self) -> bool:
+        return bool(self.names or self.files)
+
+    def file(self, rel: str) -> bool:
+        rel = rel.replace("\\", "/")
+        return any(rel == f or rel.endswith("/" + f) for f in self.files)
+
+
+# the calls that write a frame to a file, whose first argument is the path
+_WRITERS = {"to_csv", "to_parquet", "to_json", "to_excel", "to_feather", "to_pickle"}
+
+
+def random_draws(text: str) -> RandomDraws:
+    """The names and files of `text` computed from rows drawn at random: bound to an
+    expression that calls `.sample(...)` or reads such a name (followed through the script
+    until nothing is added; a name changed in place, `s["c"] = ...`, counts as bound), and the
+    files written (`x.to_csv("path")`) from such an expression."""
+    try:
+        tree = ast.parse(text)
+    except SyntaxError:
+        return RandomDraws({}, frozenset())
+
+    def draws(node: ast.AST) -> bool:
+        return any(isinstance(n, ast.Call) and isinstance(n.func, ast.Attribute)
+                   and n.func.attr == "sample" for n in ast.walk(node))
+
+    def reads(node: ast.AST, names: dict[str, bool]) -> bool:
+        return any(isinstance(n, ast.Name) and n.id in names for n in ast.walk(node))
+
+    def bound(target: ast.AST) -> list[str]:
+        while isinstance(target, (ast.Subscript, ast.Attribute)):
+            target = target.value  # df["c"] = ..., df.c = ...: df is changed
+        if isinstance(target, ast.Name):
+            return [target.id]
+        if isinstance(target, (ast.Tuple, ast.List)):
+            return [n for t in target.elts for n in bound(t)]
+        return []
+
+    names: dict[str, bool] = {}
+    files: set[str] = set()
+    grown = True
+    while grown:
+        grown = False
+        for node in ast.walk(tree):
+            targets: list[ast.AST] = []
+            value: ast.AST | None = None
+            if isinstance(node, ast.Assign):
+                targets, value = list(node.targets), node.value
+            elif isinstance(node, (ast.AugAssign, ast.AnnAssign)) and node.value is not None:
+                targets, value = [node.target], node.value
+            if value is not None and (draws(value) or reads(value, names)):
+                direct = isinstance(value, ast.Call) and isinstance(value.func, ast.Attribute) \
+                    and value.func.attr == "sample"
+                for name in (n for t in targets for n in bound(t)):
+                    if name not in names or (names[name] and not direct):
+                        names[name] = direct and names.get(name, True)
+                        grown = True
+            if isinstance(node, ast.Call) and isinstance(node.func, ast.Attribute) \
+                    and node.func.attr in _WRITERS and node.args \
+                    and isinstance(node.args[0], ast.Constant) \
+                    and isinstance(node.args[0].value, str) \
+                    and (draws(node.func.value) or reads(node.func.value, names)):
+                path = node.args[0].value.replace("\\", "/").removeprefix("./")
+                if path not in files:
+                    files.add(path)
+                    grown = True
+    return RandomDraws(names, frozenset(files))
+
+
+def _drawn_comparison(a: object, b: object, direct: bool) -> Comparison:
+    """An output computed from rows drawn at random: the same columns (and, for the draw
+    itself, as many rows) is all the two sides can share."""
+    missing = _missing(a, b)
+    if missing is not None:
+        return missing
+    return _safely(lambda: _drawn_shapes(a, b, direct))
+
+
+def _drawn_shapes(a: object, b: object, direct: bool) -> Comparison:
+    from porter.verify.compare import _row_numbers_as_labels, normalize
+    if isinstance(a, Path) and isinstance(b, Path):
+        a, b = read_table(a), read_table(b)
+        if a is None or b is None:
+            return Comparison("same", "rows drawn at random (sample): not a table, not compared")
+    elif not hasattr(a, "columns") and not hasattr(a, "name"):
+        return Comparison("same", "rows drawn at random (sample): not a table, not compared")
+    left, right = normalize(a), normalize(b)
+    if [c for c in right.columns if c not in left.columns] == ["index"] \
+            and _row_numbers_as_labels(a):
+        # the converted frame carries pandas' row labels as a column "index"
+        left = normalize(a.reset_index())  # type: ignore[union-attr]
+    if sorted(left.columns) != sorted(right.columns):
+        return Comparison("different", "rows drawn at random (sample), and the columns differ: "
+                                       f"{left.columns} vs {right.columns}")
+    if direct and left.height != right.height:
+        return Comparison("different", f"rows drawn at random (sample): {left.height} rows vs "
+                                       f"{right.height}")
+    what = "columns and number of rows" if direct else "columns"
+    return Comparison("same", "rows drawn at random (sample), which Polars cannot draw as "
+                              f"pandas does: compared by their {what} only")
+
+
 def _judge(before: SideOutputs, after: SideOutputs, options: VerifyOptions,
-           row_names: frozenset[str] = frozenset()) -> VerifyResult:
+           row_names: frozenset[str] = frozenset(),
+           drawn: RandomDraws | None = None) -> VerifyResult:
     notes: list[str] = []
     outputs: list[OutputResult] = []
     if before.run.failure or after.run.failure:
@@ -186,7 +301,16 @@ def _judge(before: SideOutputs, after: SideOutputs, options: VerifyOptions,
                 outputs.append(OutputResult(f"{side} script", "variable", Comparison(
                     "error", f"the {side} script {out.run.failure}")))
         return VerifyResult("error", tuple(outputs), before.run, after.run)
+    drawn = drawn or RandomDraws({}, frozenset())
+    if drawn:
+        notes.append("the script draws rows at random (sample): pandas' draws cannot be "
+                     "repeated in Polars, so the outputs computed from them are compared by "
+                     "their columns (and the draw itself by its number of rows) only")
     for name in sorted(set(before.files) | set(after.files)):
+        if drawn.file(name):
+            outputs.append(OutputResult(name, "file", _drawn_comparison(
+                before.files.get(name), after.files.get(name), direct=False)))
+            continue
         outputs.append(OutputResult(name, "file", _compare_files(
             before.files.get(name), after.files.get(name), options)))
     for side, out in (("original", before), ("converted", after)):
@@ -207,6 +331,10 @@ def _judge(before: SideOutputs, after: SideOutputs, options: VerifyOptions,
         if name not in before.variables:
             notes.append(f"{name}: only the converted script has it (a name porter wrote); "
                          "not compared")
+            continue
+        if name in drawn.names:
+            outputs.append(OutputResult(name, "variable", _drawn_comparison(
+                before.variables.get(name), after.variables.get(name), drawn.names[name])))
             continue
         outputs.append(OutputResult(name, "variable", _compare_values(
             before.variables.get(name), after.variables.get(name), options)))
