@@ -132,7 +132,8 @@ def main():
         .sink_csv("routes.csv")
     )
     print(
-        f"{tickets.select(pl.len()).collect().item()} tickets, {summary.select(pl.len()).collect().item()} routes",
+        f"{tickets.select(pl.len()).collect().item()} tickets, "
+        f"{summary.select(pl.len()).collect().item()} routes",
     )
 
 

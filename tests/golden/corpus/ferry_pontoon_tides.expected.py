@@ -354,7 +354,10 @@ west = (
 # TODO(porter): pd.concat: a piece whose columns porter does not know, or with a column named like a
 #   level
 visits = pd.concat(
-    [east.collect().to_pandas(), west.collect().to_pandas()],
+    [
+        east.collect().to_pandas(),
+        west.collect().to_pandas(),
+    ],
     keys=["east", "west"],
     names=["bank", "line"],
 )
