@@ -178,9 +178,16 @@ def test_calls_kept_on_pandas_get_the_new_name(old: str, new: str, key: str | No
 
 def test_a_kept_resample_of_an_alias_periods_still_read_is_not_renamed() -> None:
     # "M" resamples a PeriodIndex in pandas 3.1 (by month), where "ME" is refused: the kept
-    # call does not know which index it gets, so "M" stays as written
-    source = textwrap.dedent(FERRY + 'result = df.set_index("ts")["cars"].resample("M").sum()\n')
+    # call (a Series computed from the column, which porter does not resample) does not know
+    # which index it gets, so "M" stays as written
+    source = textwrap.dedent(FERRY + 'result = df.set_index("ts")["cars"].shift(1).resample("M").sum()\n')
     assert '.resample("M")' in convert(source).converted_text
+
+
+def test_a_column_of_a_table_labelled_by_dates_resampled_by_an_old_alias() -> None:
+    # the labels are timestamps porter knows: "M" is read as the month end it meant
+    legacy_differential(FERRY, 'result = df.set_index("ts")["cars"].resample("M").sum()\n',
+                        'result = df.set_index("ts")["cars"].resample("ME").sum()\n')
 
 
 def test_resampling_a_column_of_periods_stays_pandas() -> None:
