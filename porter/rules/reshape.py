@@ -292,7 +292,8 @@ def unstack(call: PandasCall, ctx: RuleContext) -> Value:
         on = keys[level]
     else:
         raise Unsupported(f"level {level} out of range (pandas raises)")
-    if frame.dtype(on) in ("bool", "datetime", "date") or frame.dtype(on) is None:
+    if frame.dtype(on) in ("bool", "datetime", "date", "float") or frame.dtype(on) is None:
+        # (a float key's labels would reach pandas code as text: "0.5" where pandas has 0.5)
         raise Unsupported(f"a key of type {frame.dtype(on) or 'unknown'}: Polars names the new "
                           "columns differently from pandas' labels")
     if frame.dtype(on) not in ("str", "enum"):
