@@ -123,6 +123,23 @@ def test_the_outputs_computed_from_a_draw_are_found() -> None:
     assert draws.file("sub/out/two.csv") and not draws.file("whole.csv")
 
 
+def test_a_draw_of_pythons_or_numpys_random_module_is_not_a_frames() -> None:
+    # random.sample and np.random.sample run alike on both sides (the same seed, the same
+    # generator): what is computed from them is compared as usual
+    draws = random_draws(textwrap.dedent('''\
+        import random
+        import numpy as np
+        import pandas as pd
+        random.seed(3)
+        growers = random.sample(["Ädle", "Brin", "Çava"], 2)
+        noise = np.random.sample(4)
+        df = pd.read_csv("crates.csv")
+        picked = df[df["grower"].isin(growers)]
+        picked.to_csv("picked.csv")
+    '''))
+    assert not draws, draws
+
+
 CRATES_CSV = """\
 grower,kg,boxes
 Ädle,12.5,3

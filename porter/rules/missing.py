@@ -290,7 +290,7 @@ def series_fillna(call: PandasCall, ctx: RuleContext) -> Value:
         # int64 column with nothing and keeps it int64, where fill_null(0.5) would make it
         # Float64, so the column keeps its type (an Int64 column has no null to fill)
         code = column.code.method("fill_null", fill_value(value, column.frame, ctx))
-        if not _int_fill(value):  # an int keeps Int64 Int64 and Float64 Float64 as it is
+        if not _int_fill(value):  # filled with an int, Int64 stays Int64 and Float64 Float64
             code = code.method("cast", emit.pl("dtype_of", column.name))
         return replace(derived_column(column, code, others=[value]), number=True)
     dtype = column.dtype

@@ -210,9 +210,16 @@ def random_draws(text: str) -> RandomDraws:
     except SyntaxError:
         return RandomDraws({}, frozenset())
 
+    def of_random_module(receiver: ast.expr) -> bool:
+        # random.sample(...), np.random.sample(...): Python's or numpy's, which both sides run
+        # alike with the same seed, not a frame's draw
+        return isinstance(receiver, ast.Name) and receiver.id == "random" \
+            or isinstance(receiver, ast.Attribute) and receiver.attr == "random"
+
     def draws(node: ast.AST) -> bool:
         return any(isinstance(n, ast.Call) and isinstance(n.func, ast.Attribute)
-                   and n.func.attr == "sample" for n in ast.walk(node))
+                   and n.func.attr == "sample" and not of_random_module(n.func.value)
+                   for n in ast.walk(node))
 
     def reads(node: ast.AST, names: dict[str, bool]) -> bool:
         return any(isinstance(n, ast.Name) and n.id in names for n in ast.walk(node))
@@ -240,7 +247,7 @@ def random_draws(text: str) -> RandomDraws:
                 targets, value = [node.target], node.value
             if value is not None and (draws(value) or reads(value, names)):
                 direct = isinstance(value, ast.Call) and isinstance(value.func, ast.Attribute) \
-                    and value.func.attr == "sample"
+                    and value.func.attr == "sample" and not of_random_module(value.func.value)
                 for name in (n for t in targets for n in bound(t)):
                     if name not in names or (names[name] and not direct):
                         names[name] = direct and names.get(name, True)
