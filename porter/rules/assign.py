@@ -610,6 +610,10 @@ def setitem(call: PandasCall, ctx: RuleContext) -> Value:
     if isinstance(key, Opaque) and isinstance(key.const, str) and isinstance(value, Column) \
             and value.frame.rows != frame.rows and _labelled_alike(frame, value.frame):
         return _aligned_on_labels(frame, key.const, value, ctx)
+    if isinstance(key, Opaque) and isinstance(key.const, str) and isinstance(value, Column) \
+            and value.frame.rows != frame.rows and value.frame.reordered_from() == frame.rows \
+            and frame.labels_distinct():
+        return _set_by_place(frame, key.const, value, ctx)
     if isinstance(key, Opaque) and isinstance(key.const, str):
         code, dtype = value_expr(value, frame, ctx)
         result = set_nullable_ints(with_columns(frame, [(key.const, code, dtype)]),
@@ -677,6 +681,36 @@ def _frame_into_columns(frame: Frame, keys: list[str], value: Frame) -> Frame:
         if old in floats:
             result = mark_float_ints(result, [new], floats[old])
     return result
+
+
+PLACE = "_porter_place"
+
+
+def _set_by_place(frame: Frame, name: str, value: Column, ctx: RuleContext) -> Frame:
+    """df["c"] = df.sort_values(k).groupby(g)["v"].cumsum(): the Series is computed on the
+    frame's rows sorted, and pandas aligns it on the labels, which are distinct: each row gets
+    the value computed for it. Each row's place is numbered (with_row_index) before the sort,
+    the column computed in the sorted plan, and the rows sorted back by their place."""
+    start, chain = frame.code, value.frame.code
+    base, steps = start.base if start.base is not None else start.text, start.steps
+    if chain.base != base or chain.steps[:len(steps)] != steps or len(chain.steps) == len(steps) \
+            or PLACE in (frame.columns or ()):
+        raise Unsupported("the Series comes from a sort of this frame written in a form porter "
+                          "cannot number its rows in: pandas aligns it on the labels")
+    numbered = start.method("with_row_index", PLACE)
+    code = Code(numbered.text + "".join(chain.steps[len(steps):]), numbered.prec, numbered.base,
+                numbered.steps + chain.steps[len(steps):])
+    expr = value.code.method("fill_null", False) if value.null_is_false else value.code
+    code = code.method("with_columns", expr.method("alias", name)).method("sort", PLACE) \
+        .method("drop", PLACE)
+    result = with_column_updates(frame, code, {name: value.dtype})
+    result = set_nullable_ints(result, {name: value_mark(value, ctx)})
+    # the column, now of the frame's own rows: typed as pandas types it where that depends
+    # on a value going missing (a running sum in groups whose key is missing is float64)
+    placed = replace(value, frame=result, code=emit.col(name), versions=())
+    if value.float_int is not None:
+        result = mark_float_ints(result, [name], value.float_int)
+    return typed_at_run_time(result, {name: placed}) or result
 
 
 ALIGNED = "_porter_aligned"

@@ -1848,9 +1848,10 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
         counts = counts.method("sort", result_name, **kwargs, maintain_order=True)
     # the counts are int64, the proportions float64
     kind = "float" if result_name == "proportion" else "int"
+    rows = fresh_token()  # each value once: labels of distinct values
     result = Frame(counts, columns=(name, result_name), index=(name,), labels_intact=False,
                    dtypes=(((name, column.dtype),) if column.dtype is not None else ())
-                   + ((result_name, kind),))
+                   + ((result_name, kind),), rows=rows, distinct_labels=rows)
     return Column(emit.col(result_name), frame=result, name=result_name, dtype=kind,
                   refs=frozenset({result_name}))
 
@@ -2531,9 +2532,19 @@ def pivot_table(call: PandasCall, ctx: RuleContext) -> Value:
     if margins and (how in ("mean", "median", "numpy_median") or value_dtype == "float"
                     and how in ("sum", "min", "max")):
         dtypes.append((margins_name, "float"))
-    return Frame(code.method("lazy"), columns=None, index=tuple(keys), labels_intact=False,
+    code = code.method("lazy")
+    # every cell but the keys holds numbers (wide.sum(axis=1) adds them): floats for a mean or
+    # a float column; whole numbers filled where a combination is missing stay whole, else the
+    # data decides (None)
+    if how in ("mean", "median", "numpy_median") or value_dtype == "float" and how != "count":
+        cells: tuple[str, str | None] | None = (code.text, "float")
+    elif how == "count" or value_dtype == "int":
+        cells = (code.text, "int" if type(fill) is int else None)
+    else:
+        cells = None
+    return Frame(code, columns=None, index=tuple(keys), labels_intact=False,
                  int_labels_except=int_labels, columns_name=columns, dtypes=tuple(dtypes),
-                 dates_as_text=dates_as_text)
+                 dates_as_text=dates_as_text, number_cells=cells)
 
 
 def _columns_formatted_next(call: PandasCall, ctx: RuleContext) -> str | None:

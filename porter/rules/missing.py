@@ -16,7 +16,7 @@ from porter.rules import rule
 from porter.rules.totals import column_totals
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, column_of, derive,
-    derived_column, values_fixed, without_index,
+    derived_column, labels_kept, values_fixed, without_index,
 )
 from porter.translate.values import (
     NOT_NULLABLE, Column, Frame, Opaque, PandasValue, Scalar, Value, fresh_token,
@@ -188,7 +188,7 @@ def dropna(call: PandasCall, ctx: RuleContext) -> Value:
         code = frame.code.method("drop_nulls", everything)
     else:
         code = frame.code.method("drop_nulls", *([emit.names_arg(subset)] if subset else []))
-    return derive(frame, code, same_rows=False)
+    return labels_kept(frame, derive(frame, code, same_rows=False))
 
 
 @rule("series.dropna")

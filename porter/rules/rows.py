@@ -12,6 +12,7 @@ from porter.rules.elementwise import keys_of_column_type
 from porter.rules import rule
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, column_names, column_of, derive, derived_column,
+    labels_kept,
     row_labels_carried, values_fixed, without_index,
 )
 from porter.translate import handover
@@ -75,7 +76,7 @@ def drop_duplicates(call: PandasCall, ctx: RuleContext) -> Value:
             tuple(c for c in frame.columns if c not in frame.index)
         return derive(frame, code, same_rows=False, labels_intact=True, index=(),
                       columns=columns, index_unnamed=False)
-    return derive(frame, code, same_rows=False, labels_intact=ignore_index)
+    return labels_kept(frame, derive(frame, code, same_rows=False, labels_intact=ignore_index))
 
 
 @rule("frame.duplicated", "series.duplicated")
@@ -199,7 +200,9 @@ def sort_values(call: PandasCall, ctx: RuleContext) -> Value:
                             kind, ctx, name=emit.names_arg(by))
     else:
         code = frame.code.method("sort", emit.names_arg(by), **sort_args(by, ascending, na_position))
-    return derive(frame, code, same_rows=False, labels_intact=bool(call.const("ignore_index", None, False)))
+    return labels_kept(frame, derive(frame, code, same_rows=False,
+                                     labels_intact=bool(call.const("ignore_index", None, False))),
+                       reordered=True)
 
 
 @rule("series.sort_values")
@@ -936,8 +939,10 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: a missing key last (na_position="last"); text by code point in both; labels of
     several keys of text, whole numbers, dates or True/False (a MultiIndex: pandas' lexsort
     is stable, so rows of one label keep their order, as maintain_order=True).
-    Caveats: labels after a filter or a sort (row numbers porter does not keep), labels that
-    may repeat (pandas' quicksort puts ties in no set order), several keys of other types,
+    One key of numbers, True/False or dates that may repeat (set_index("day")): numpy's
+    quicksort order, as pandas sorts it (pandas_sort_values).
+    Caveats: labels after a filter or a sort (row numbers porter does not keep), several keys
+    of other types,
     axis=1, key= and na_position="first" are TODOs. level= (a name or position, or a list of
     them) sorts stably by those keys: ascending a list of as many, each its own way; one
     True/False, then by the other keys too (sort_remaining=True), all that way. sort_index(by=...) of older pandas is
@@ -998,6 +1003,15 @@ def sort_index(call: PandasCall, ctx: RuleContext) -> Value:
         if not ascending:
             kwargs["descending"] = True
         code = frame.code.method("sort", list(frame.index), **kwargs)
+    elif len(frame.index) == 1 and frame.dtype(frame.index[0]) in ("int", "float", "bool",
+                                                                   "date", "datetime") \
+            and not row_labels_carried(frame) and not frame.index_unnamed:
+        # one key of numbers, True/False or dates that may repeat (set_index("day")): pandas
+        # sorts the labels as sort_values sorts a column, with numpy's quicksort (nargsort),
+        # which puts rows of one label in an order of its own: pandas_sort_values
+        key = frame.index[0]
+        code = pandas_order(frame, emit.col(key), frame.dtype(key), ascending, "last",
+                            call.const("kind", None, "quicksort"), ctx, name=emit.lit(key))
     else:
         raise ctx.todo("row labels that are original row numbers after a filter or sort, or "
                        "keys that may repeat: keep them in a column (with_row_index) and sort "

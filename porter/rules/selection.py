@@ -6,6 +6,7 @@ from __future__ import annotations
 import ast
 import functools
 import re
+from collections.abc import Iterable
 from dataclasses import dataclass, field, replace
 from typing import TYPE_CHECKING
 
@@ -16,8 +17,8 @@ from porter.emit.code import Code
 from porter.rules import rule
 from porter.translate.context import (
     ROW_LABELS, PandasCall, RuleContext, Unsupported, column_names, column_of, derive,
-    holds_numbers, nullable_columns, row_labels_carried, select_columns, values_fixed,
-    with_row_labels,
+    holds_numbers, labels_kept, nullable_columns, row_labels_carried, select_columns,
+    values_fixed, with_row_labels,
 )
 from porter.translate.handover import series_frame, to_pandas
 
@@ -263,7 +264,8 @@ def getitem_mask(call: PandasCall, ctx: RuleContext) -> Value:
     mask = call.args[0]
     if not isinstance(mask, Column):
         raise Unsupported("the mask was computed by pandas (see the TODO where it was made)")
-    return derive(frame, frame.code.method("filter", ctx.expr(mask, frame)), same_rows=False)
+    return labels_kept(frame, derive(frame, frame.code.method("filter", ctx.expr(mask, frame)),
+                                     same_rows=False))
 
 
 @rule("frame.getitem.slice", "frame.iloc")
@@ -386,7 +388,8 @@ def loc(call: PandasCall, ctx: RuleContext) -> Value:
             "sort", keys, maintain_order=True)
         frame = derive(frame, code, same_rows=False)
     elif isinstance(rows, Column):
-        frame = derive(frame, frame.code.method("filter", ctx.expr(rows, frame)), same_rows=False)
+        frame = labels_kept(frame, derive(frame, frame.code.method("filter", ctx.expr(rows, frame)),
+                                          same_rows=False))
     elif _level_selection(rows) and len(frame.index) > 1:
         assert isinstance(rows, Opaque)
         frame = _rows_by_levels(frame, rows, ctx)  # df.loc[pd.IndexSlice["a", :], ...]
@@ -1324,8 +1327,10 @@ def series_getitem(call: PandasCall, ctx: RuleContext) -> Value:
 
 def unique_key(frame: Frame) -> bool:
     """Whether `frame` is labelled by one key column whose values are all different: a
-    groupby's result in its own order, or a Series indexed by column names (df.sum())."""
-    return len(frame.index) == 1 and (frame.grouped_rows == frame.rows or frame.index_unnamed)
+    groupby's result in its own order, a Series indexed by column names (df.sum()), or value
+    counts (Frame.distinct_labels)."""
+    return len(frame.index) == 1 and (frame.grouped_rows == frame.rows or frame.index_unnamed
+                                      or frame.distinct_labels == frame.rows)
 
 
 @rule("series.loc")
@@ -1701,6 +1706,26 @@ def apply_name_ops(name: str, ops: NameOps) -> str:
     return name
 
 
+# Index.str.replace(pat, repl, regex=True), among the string methods applied to column names
+REGEX_REPLACE = "replace_pattern"
+
+
+def names_by_pandas(names: Iterable[str], ops: NameOps) -> list[str]:
+    """The column names after df.columns.str.<method>(...) calls, computed by pandas' own
+    Index.str methods (pandas 3's str dtype, as read_csv labels the columns): lower() and
+    upper() of a few non-ASCII letters, strip()'s whitespace and patterns are pandas'."""
+    import pandas as pd
+
+    index = pd.Index(list(names), dtype="str")
+    for method, args in ops:
+        if method == REGEX_REPLACE:
+            pat, repl, n = args
+            index = index.str.replace(pat, repl, n=n, regex=True)  # type: ignore[arg-type]
+        else:
+            index = getattr(index.str, method)(*args)
+    return [str(name) for name in index]
+
+
 def _name_ops_text(param: str, ops: NameOps) -> str:
     text = param
     for method, args in ops:
@@ -1781,13 +1806,17 @@ def columns_str(call: PandasCall, ctx: RuleContext) -> Value:
     ops = names.ops if isinstance(names, ColumnNames) else ()
     if method == "replace":
         ctx.reject_unknown(call, "pat", "repl", "n", "regex", positional=3)
-        if call.const("regex", None, False) is not False:
-            raise Unsupported("regex=True (a pattern)")
+        regex = call.const("regex", None, False)
+        if regex not in (True, False):
+            raise Unsupported("regex= that porter cannot read")
         pat, repl = call.const("pat", 0), call.const("repl", 1)
         n = call.const("n", 2, -1, kinds=(int,))
         if not (isinstance(pat, str) and isinstance(repl, str)):
             raise Unsupported("replace with something other than text")
         args: tuple[object, ...] = (pat, repl) if n == -1 else (pat, repl, n)
+        if regex:
+            # a pattern: pandas' own replace computes the names, which porter needs to know
+            method, args = REGEX_REPLACE, (pat, repl, n)
     else:
         keyword = INDEX_STR_METHODS[method]
         if keyword is None:
@@ -1804,12 +1833,15 @@ def columns_str(call: PandasCall, ctx: RuleContext) -> Value:
     ops = (*ops, (method, args))
     known = known_data_columns(frame)
     if known is not None:
-        if method in ("lower", "upper", "casefold") and not all(apply_name_ops(c, ops[:-1]).isascii()
-                                                                 for c in known):
-            raise Unsupported(f"{method} of non-ASCII names (pandas' and Python's differ on a "
-                              "few letters)")
-        code = emit.lit([apply_name_ops(c, ops) for c in known])
+        # pandas' own Index.str methods compute the new names here, as the script would
+        new_names = names_by_pandas(known, ops)
+        if len(set(new_names)) != len(new_names):
+            raise Unsupported("the new names repeat a name (pandas keeps both columns; a Polars "
+                              "frame cannot)")
+        code = emit.lit(new_names)
     else:
+        if any(m == REGEX_REPLACE for m, _ in ops):
+            raise Unsupported("regex=True (a pattern) on names porter does not know")
         if method in ("lower", "upper", "casefold"):
             ctx.lower(f"pandas' Index.str.{method} differs from Python's on a few non-ASCII "
                       "letters (İ, ß)", 0.95)
@@ -1824,7 +1856,7 @@ def computed_names(value: Value) -> Value:
         return value
     known = known_data_columns(value.of) if value.of is not None else None
     if known is not None:
-        names = [apply_name_ops(c, value.ops) for c in known]
+        names = names_by_pandas(known, value.ops)
         return Opaque(emit.lit(names), const=names)
     return Opaque(value.code)
 

@@ -257,6 +257,16 @@ def derive(frame: Frame, code: Code, *, same_rows: bool, **changes: Any) -> Fram
     return replace(frame, code=code, sites=(), **changes)
 
 
+def labels_kept(frame: Frame, result: Frame, *, reordered: bool = False) -> Frame:
+    """`result`, some of `frame`'s rows with their labels (a filter) or all of them in
+    another order (reordered: a sort), marked as having distinct labels when `frame`'s are
+    (Frame.distinct_labels, Frame.reorders)."""
+    if not frame.labels_distinct() or result.labels_intact or result.rows == frame.rows:
+        return result
+    return replace(result, distinct_labels=result.rows,
+                   reorders=(result.rows, frame.rows) if reordered else None)
+
+
 def with_column_updates(frame: Frame, code: Code, updates: dict[str, str | None]) -> Frame:
     """`frame` after with_columns: `updates` maps each written column to its dtype."""
     columns = frame.columns

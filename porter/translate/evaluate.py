@@ -1359,7 +1359,10 @@ class Evaluator:
         message = ("passed to code porter does not understand: handed over to pandas with "
                    ".collect().to_pandas(); port that code to take a Polars frame")
         frame = value if isinstance(value, Frame) else value.frame if isinstance(value, Column) else None
-        whole = self.pandas_throughout(value, node) if reads_labels else None
+        # a method of such a value (`other.sort_values("k")["v"].cumsum`, called by code kept
+        # on pandas): what it is called on is what carries the labels
+        works_on = value.receiver if isinstance(value, BoundMethod) else value
+        whole = self.pandas_throughout(works_on, node) if reads_labels else None
         if whole is not None:
             # filtered or sorted on the way (`[df[df.k == "a"], ...]`): pandas runs the whole
             # expression, so the rows keep pandas' labels
