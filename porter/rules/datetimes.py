@@ -810,6 +810,7 @@ def _guess_definition(dayfirst: bool = False) -> str:
         f"                .str.to_datetime({_GUESS_LAYOUT!r}, time_unit=\"us\", strict=strict))\n"
         "\n"
         f"    first = text.filter(~text.is_in({_NOT_FIRST!r})).first()\n"
+        "    written = text\n"
         "    if not coerce:  # pandas' texts for NaT are missing, not an error\n"
         f"        text = text.replace({NAT_TEXTS!r}, None)\n"
         "    # blanks before or after the first value are part of pandas' format (' %Y-%m-%d'):\n"
@@ -822,19 +823,46 @@ def _guess_definition(dayfirst: bool = False) -> str:
         "    def blanks(pattern, front, back):\n"
         '        return pattern.replace("^(?:", "^(?:" + front, 1)[:-3] + back + ")|^"\n'
         "\n"
+        "    formats = FORMATS\n"
+        "    fits = [first.str.contains(selection)\n"
+        "            & read(first.str.replace(pattern, layout), False).is_not_null()\n"
+        "            for selection, pattern, layout in formats]\n"
         "    guessed = [\n"
-        "        pl.when(first.str.contains(selection)\n"
-        "                & read(first.str.replace(pattern, layout), False).is_not_null())\n"
+        "        pl.when(fit)\n"
         "        .then(pl.when(bare).then(text.str.replace(pattern, layout))\n"
         '              .when(~trail).then(text.str.replace(blanks(pattern, r"\\s+", ""), layout))\n'
         '              .when(~lead).then(text.str.replace(blanks(pattern, "", r"\\s+"), layout))\n'
         '              .otherwise(text.str.replace(blanks(pattern, r"\\s+", r"\\s+"), layout)))\n'
-        "        for selection, pattern, layout in FORMATS\n"
+        "        for fit, (selection, pattern, layout) in zip(fits, formats)\n"
         "    ]\n"
-        + ('    guessed = [pl.when(unguessed).then(text.str.slice(0, 0) + "="), *guessed]\n'
-           if dayfirst else "") +
-        "    return read(pl.coalesce(guessed if coerce else [*guessed, text]), not coerce)\n"
-    ).replace("in FORMATS", "in [\n" + "".join(rows) + "        ]")
+        + ("    # a first value in none of these formats (a word, an impossible day such as\n"
+           "    # 2024-02-30, am/pm, a time zone, eight digits that read day first): pandas\n"
+           "    # guesses another format or none and reads the values its own way, so pandas\n"
+           "    # reads them here\n" if dayfirst else
+           "    # a first value in none of these formats (a word, an impossible day such as\n"
+           "    # 2024-02-30, am/pm, a time zone): pandas guesses another format or none and\n"
+           "    # reads the values its own way, so pandas reads them here\n") +
+        "    known = first.is_null() | pl.any_horizontal(fits)"
+        + (" & ~unguessed" if dayfirst else "") + "\n"
+        "\n"
+        "    def by_pandas(columns):\n"
+        "        values, known = columns\n"
+        "        if known.len() == 0 or known.all():\n"
+        '            return pl.Series(values.name, [None] * values.len(), dtype=pl.Datetime("us"))\n'
+        "        import pandas as pd\n"
+        "\n"
+        '        dates = pd.to_datetime(values.to_pandas(), errors="coerce" if coerce else "raise"'
+        + (", dayfirst=True" if dayfirst else "") + ")\n"
+        '        if dates.dtype.kind != "M" or getattr(dates.dtype, "tz", None) is not None:\n'
+        '            raise ValueError("pandas reads these values as dates with a time zone, "\n'
+        '                             "which this port does not hold")\n'
+        '        return pl.from_pandas(dates).cast(pl.Datetime("us"))\n'
+        "\n"
+        "    ours = read(pl.when(known).then(pl.coalesce(guessed if coerce else [*guessed, text])),\n"
+        "                not coerce)\n"
+        '    return pl.coalesce(ours, pl.map_batches([written, known], by_pandas,\n'
+        '                                            return_dtype=pl.Datetime("us")))\n'
+    ).replace("    formats = FORMATS\n", "    formats = [\n" + "".join(rows).replace("            ", "        ") + "    ]\n")
 
 
 def formatted_parse(column: Code, fmt: str, port: Strptime, *, coerce: bool) -> Code:
@@ -875,17 +903,15 @@ GUESS_REASON = ("no format: pandas guesses one from the first value and reads ev
                 "with it; porter follows its guess for ISO dates and times, 01/05/2024 (month "
                 "first, or day first from 13/01/2024), 20240105, 5 Jan 2024 and Jan 5, 2024; "
                 "a first value in another layout (a two-digit year, a time zone, am/pm, an "
-                "impossible day such as 02/30/2024) gives no dates here (an error with "
-                "errors='raise') where pandas reads each value by itself; write format= to be "
-                "sure")
+                "impossible day such as 02/30/2024, a word) is read by pandas itself at run "
+                "time (pandas is imported then); write format= to be sure")
 GUESS_DAYFIRST_REASON = (
     "no format, dayfirst=True: pandas guesses one from the first value, day first where it "
     "reads that way (01/05/2024 and 2024-01-05 are the 1st of May), and reads every value with "
     "it; porter follows its guess for ISO dates and times, 01/05/2024, 01.05.2024, 20240131, "
     "5 Jan 2024 and Jan 5, 2024; a first value in another layout (a two-digit year, a time "
-    "zone, am/pm, eight digits that read day first such as 20240105) gives no dates here (an "
-    "error with errors='raise') where pandas reads each value by itself; write format= to be "
-    "sure")
+    "zone, am/pm, eight digits that read day first such as 20240105, a word) is read by "
+    "pandas itself at run time (pandas is imported then); write format= to be sure")
 
 
 def _written_values(column: Column, ctx: RuleContext) -> list[list[object]]:
@@ -1011,9 +1037,10 @@ def to_datetime(call: PandasCall, ctx: RuleContext) -> Value:
     value reads that way (01/05/2024 and 2024-01-05 are the 1st of May; 05/13/2024 and
     2024-01-31 keep the month-first format); with format= dayfirst is ignored, as in pandas.
     Caveats: without a format, a first value in another layout (two-digit years, time zones,
-    am/pm, an impossible day) is read by dateutil value by value in pandas: no dates here
-    (an error with errors="raise") (0.8), as is, day first, a first value of eight digits
-    that reads day first (20240105); %f keeps microseconds where pandas keeps
+    am/pm, an impossible day, a word), and day first a first value of eight digits that reads
+    day first (20240105), is read by pandas its own way (dateutil value by value): pandas
+    reads the column at run time here too, imported for it (0.8; dates with a time zone stop
+    the script); %f keeps microseconds where pandas keeps
     nanoseconds (0.9); other directives (%j) keep Polars' own parser, which also takes values
     pandas refuses (0.8); a second of 61 rolls over into the next minute in pandas and is
     missing here; a year in non-ASCII digits ("２024") and year 0000 in an ISO format (an error
