@@ -13,6 +13,7 @@ import libcst as cst
 
 from porter.analysis.consumers import plotting_arguments, seaborn_data_columns
 from porter.analysis.frame_lists import frame_lists
+from porter.analysis.pipes import pipes_as_calls
 from porter.analysis.returned_frames import return_changed_frames
 from porter.mapping import MappingTable, load_table
 from porter.emit.fstrings import fits
@@ -59,6 +60,8 @@ def convert_source(text: str, *, path: str | None = None, options: Options | Non
     """Convert the text of one pandas script; raises ConversionError for bad input."""
     options = options or Options()
     module = parse(text, path)
+    # df.pipe(clean) is clean(df), which porter ports as the script's other calls
+    module = pipes_as_calls(module)
     # helpers that change their frame in place return it, and their callers rebind it
     returned = return_changed_frames(module)
     module = returned.module

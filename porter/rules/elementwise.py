@@ -32,7 +32,7 @@ from porter.translate.context import (
     row_labels_carried,
     value_dtype, with_column_updates,
 )
-from porter.translate.values import Column, Frame, Items, Opaque, Scalar, Value, fresh_token
+from porter.translate.values import Column, Frame, Items, Module, Opaque, Scalar, Value, fresh_token
 
 
 def frame_lambda(node: cst.Lambda, frame: Frame, ctx: RuleContext) -> Value:
@@ -1172,6 +1172,44 @@ def cut(call: PandasCall, ctx: RuleContext) -> Value:
     return derived_column(column, code, dtype="enum")  # ordered: sorts in the labels' order
 
 
+# pandas' functions of a Series that df.apply(f, axis=0, **kwargs) calls on each column, as
+# the rule of that function ports them (module name in rules/)
+_PER_COLUMN = {"pandas.to_numeric": ("assign", "to_numeric")}
+
+
+def _pandas_function_per_column(call: PandasCall, frame: Frame, qualname: str,
+                                ctx: RuleContext) -> Frame:
+    """df[cols].apply(pd.to_numeric, errors="coerce"): pandas calls the function on each
+    column with the keyword arguments given, and builds a frame of the results with the
+    frame's rows: each column ported as the function's own rule ports it."""
+    import importlib
+
+    if call.const("axis", 1, 0, kinds=(int, str)) not in (0, "index"):
+        raise Unsupported("a pandas function given each row (axis=1)")
+    if frame.columns is None or not frame.columns:
+        raise Unsupported("the frame's columns are not known")
+    if frame.index:
+        raise Unsupported("a frame with an index of its own")
+    if len(call.args) > 2:
+        raise Unsupported("arguments of the function given by position (args=)")
+    module, name = _PER_COLUMN[qualname]
+    rule_function = getattr(importlib.import_module(f"porter.rules.{module}"), name)
+    kwargs = {k: v for k, v in call.kwargs.items() if k not in ("func", "axis")}
+    ported: dict[str, Column] = {}
+    for column in frame.columns:
+        each = PandasCall(None, name, (column_of(frame, column),), kwargs, node=call.node)
+        result = rule_function(each, ctx)
+        if not isinstance(result, Column) or result.frame.rows != frame.rows:
+            raise Unsupported(f"{qualname.split('.')[-1]} of column {column!r} gives no column")
+        ported[column] = result
+    changed = {n: c for n, c in ported.items() if c.code.text != emit.col(n).text}
+    if not changed:
+        return frame
+    exprs = [c.code.method("alias", n) for n, c in changed.items()]
+    return with_column_updates(frame, frame.code.method("with_columns", *exprs),
+                               {n: c.dtype for n, c in changed.items()})
+
+
 @rule("frame.apply")
 def frame_apply(call: PandasCall, ctx: RuleContext) -> Value:
     """df.apply(f, axis=1) -> one expression over the row's columns.
@@ -1183,12 +1221,17 @@ def frame_apply(call: PandasCall, ctx: RuleContext) -> Value:
     A function with loops or `try` blocks that reads only text and float columns, changes
     nothing outside itself and always returns one type runs in Python on a dict of the columns
     it reads (map_elements, 0.9; see porter.analysis.row_functions).
-    Caveats: axis=0 (a function per column), other uses of the row (row.name, row[0]) and
+    df[cols].apply(pd.to_numeric, errors="coerce") (axis=0): each column as pd.to_numeric's
+    rule ports it (_pandas_function_per_column).
+    Caveats: axis=0 with other functions, other uses of the row (row.name, row[0]) and
     calls porter does not know are TODOs. Without the column types, an int column is taken
     to reach the function as an int (0.95).
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
+    function = call.arg("func", 0, None)
+    if isinstance(function, Module) and function.qualname in _PER_COLUMN:
+        return _pandas_function_per_column(call, frame, function.qualname, ctx)
     ctx.reject_unknown(call, "func", "axis", positional=2)
     axis = call.const("axis", 1, 0, kinds=(int, str))
     if axis not in (1, "columns"):
@@ -1786,7 +1829,8 @@ def frame_rowwise(call: PandasCall, ctx: RuleContext) -> Value:
     counts the present values of columns of any type (Int64).
     numeric_only=True reads the number and True/False columns, when every column's type is
     known. sum(axis=1) of a pivoted table whose columns porter does not know (unstack,
-    crosstab of counts), before any other step: every column but the keys, NaN skipped.
+    crosstab of counts, pivot_table of numbers), before any other step: every column but the
+    keys, NaN skipped.
     Caveats: per-column totals (axis=0: pandas gives a Series indexed by column name),
     skipna=False, text or date columns (and True/False ones but for sum and count) and
     numeric_only=True with a column of unknown type are TODOs. Without the column types,
@@ -1989,7 +2033,10 @@ def frame_pipe(call: PandasCall, ctx: RuleContext) -> Value:
 
     Handles: a lambda of one parameter whose body porter ports (a filter, an assign, a chain
     of methods); what it gives back (a frame, a column, a value) is what pandas' pipe gives.
-    Caveats: a function of the script's own (df.pipe(clean)), extra arguments and a
+    df.pipe(clean, ...) with a function the script defines never reaches this rule: it is
+    written clean(df, ...) before translation (analysis/pipes.py), unless `.pipe(` starts a
+    line of its own.
+    Caveats: other functions (imported, bound again), a lambda with extra arguments and a
     (function, keyword) tuple are TODOs.
     """
     frame = call.receiver

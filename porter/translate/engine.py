@@ -1534,11 +1534,13 @@ class _Walker:
         if isinstance(receiver_node, cst.Subscript) and isinstance(value, Column):
             # pandas 3 (copy-on-write): the method changes a copy of the column, never the frame
             line, end_line = self.services.position(expr)
+            meant = " ".join(f"{self.services.code_for(receiver_node)} = "
+                             f"{cst.Module([]).code_for_node(call)}".split())
             site = SiteDraft("series.inplace", "inplace", "todo", 0.0,
                              "chained assignment with inplace=True changes nothing in pandas 3 "
-                             "(copy-on-write); if the column was meant to change, assign the "
-                             "result to it", line, end_line)
-            return emit.layout_chain(value.code, indent, ""), [*value.sites, site]
+                             "(copy-on-write), so its port does nothing either; if the column "
+                             f"was meant to change, write `{meant}`", line, end_line)
+            return "pass", [*value.sites, site]
         return None
 
     def assign(self, stmt: cst.Assign | cst.AnnAssign, env: dict[str, Value], evaluator: Evaluator,
@@ -2664,13 +2666,25 @@ def _columns_changed_alike(stmt: cst.BaseSmallStatement, evaluator: Evaluator | 
     target, value = stmt.targets[0].target, stmt.value
     names = _listed_names(target, evaluator)
     if names is None or not isinstance(value, cst.Call) \
-            or not isinstance(value.func, cst.Attribute) \
-            or value.func.attr.value not in _COLUMNWISE:
+            or not isinstance(value.func, cst.Attribute):
         return None
     source = value.func.value
     assert isinstance(target, cst.Subscript)
     if _listed_names(source, evaluator) != names or not isinstance(source, cst.Subscript) \
             or not source.value.deep_equals(target.value):
+        return None
+    function = _pandas_function_applied(value, evaluator)
+    if function is not None:
+        # df[["a", "b"]] = df[["a", "b"]].apply(pd.to_numeric, errors="coerce"): pandas calls
+        # the function on each column, with the keywords given
+        owner = target.value
+        assert isinstance(owner, cst.Name)
+        rest = [a for a in value.args[1:] if a.keyword is not None]
+        return owner, names, [
+            cst.Call(func=function, args=[cst.Arg(cst.Subscript(value=owner, slice=[
+                cst.SubscriptElement(cst.Index(cst.SimpleString(emit.render(n))))])), *rest])
+            for n in names]
+    if value.func.attr.value not in _COLUMNWISE:
         return None
     for arg in value.args:
         if arg.star or arg.keyword is not None and arg.keyword.value == "inplace":
@@ -2690,6 +2704,28 @@ def _columns_changed_alike(stmt: cst.BaseSmallStatement, evaluator: Evaluator | 
             value=owner, slice=[cst.SubscriptElement(cst.Index(cst.SimpleString(emit.render(n))))])))
         for n in names]
     return owner, names, values
+
+
+def _pandas_function_applied(value: cst.Call, evaluator: Evaluator | None
+                             ) -> cst.BaseExpression | None:
+    """The function of `<frame>.apply(pd.to_numeric, errors="coerce")`: one of pandas' own
+    functions of a Series, given by name, whose other arguments are keywords with constant
+    values (not axis=); None for any other call."""
+    if evaluator is None or value.func.attr.value != "apply" or not value.args \
+            or value.args[0].keyword is not None or value.args[0].star:  # type: ignore[attr-defined]
+        return None
+    function = evaluator.eval(value.args[0].value)
+    if not (isinstance(function, Module) and function.qualname in ("pandas.to_numeric",)):
+        return None
+    for arg in value.args[1:]:
+        if arg.keyword is None or arg.star or arg.keyword.value in ("axis", "args", "func",
+                                                                     "result_type", "raw"):
+            return None
+        try:
+            ast.literal_eval(cst.Module([]).code_for_node(arg.value))
+        except (ValueError, SyntaxError, TypeError):
+            return None
+    return value.args[0].value
 
 
 def _listed_names(node: cst.BaseExpression, evaluator: Evaluator | None = None
