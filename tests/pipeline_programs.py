@@ -125,6 +125,12 @@ STEPS = [
     _s('df["e"] = df["v"].cummax()', numbers="v", adds="e:n"),
     _s('df["e"] = df["v"].expanding().sum()', numbers="v", adds="e:n"),
     _s('df = df.set_index("n").sort_index().reset_index()', numbers="n"),
+    # a Series of the sorted frame set back (pandas aligns it on the labels)
+    _s('df["e"] = df.sort_values("v").groupby("g")["n"].cumsum()', "g", numbers="v n",
+       adds="e:n"),
+    _s('df["e"] = df.sort_values(["g", "n"], kind="stable").groupby("g")["v"].shift()', "g",
+       numbers="v n", adds="e:n"),
+    _s('df["e"] = df.sort_values("n")["v"].diff()', numbers="v n", adds="e:n"),
     _s('df["e"] = df["t"].str.split(" ").str[0]', "t", adds="e:t"),
     _s('df["e"] = df["d"].dt.dayofweek', "d", adds="e:n"),
     _s('df["e"] = df["d"] + pd.Timedelta(days=3)', "d", adds="e:d"),

@@ -23,7 +23,7 @@ from porter.rules.datetimes import is_timedelta, timedelta_arithmetic
 from porter.rules.io_options import DIVIDE_FUNCTION, FLOAT_DIVMOD_FUNCTION
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, check_same_rows, derive, derived_column,
-    floats_where_missing, value_dtype, without_index,
+    floats_where_missing, number_cells, value_dtype, with_column_updates, without_index,
 )
 from porter.translate.handover import to_pandas
 from porter.translate.values import (
@@ -1503,3 +1503,60 @@ def pd_eval(call: PandasCall, ctx: RuleContext) -> Value:
     func = cst.Module([]).code_for_node(call.node.func) if isinstance(call.node, cst.Call) \
         else "pd.eval"
     return PandasValue(Code(f"{func}({', '.join(a.text for a in args)})"))
+
+
+# df.div(s, axis=0) and its kin: the operator each writes
+_ROW_WISE_OPS = {"div": "/", "truediv": "/", "divide": "/", "mul": "*", "multiply": "*",
+                 "sub": "-", "subtract": "-", "add": "+"}
+_BY_ROW = "_porter_by_row"
+
+
+@rule(*(f"frame.{name}" for name in _ROW_WISE_OPS))
+def frame_by_rows(call: PandasCall, ctx: RuleContext) -> Value:
+    """wide.div(wide.sum(axis=1), axis=0) (mul / sub / add): each column of numbers with a Series
+    of the frame's own rows, row by row -> the Series held in a column, then one expression over
+    the columns: pl.exclude(keys) / pl.col(that column).
+
+    Handles: a pivoted table whose columns porter does not know (pivot_table, unstack, crosstab:
+    every column but the keys holds numbers), or a frame whose columns are all known numbers;
+    division value by value (a column over a column: no reciprocal), 0 / 0 missing, x / 0 inf,
+    as pandas; inf - inf and inf * 0 made missing where floats take part.
+    Caveats: axis="columns" (a Series lined up with the column labels), a Series of other rows
+    (pandas aligns it on the labels), fill_value=, level= and text or date columns are TODOs.
+    """
+    frame = call.receiver
+    assert isinstance(frame, Frame)
+    ctx.reject_unknown(call, "other", "axis", positional=2)
+    if call.const("axis", 1, "columns", kinds=(int, str)) not in (0, "index", "rows"):
+        raise Unsupported("axis='columns': pandas lines a Series up with the column labels")
+    other = call.arg("other", 0)
+    if not isinstance(other, Column) or other.dtype not in ("int", "float"):
+        raise Unsupported("something other than a Series of numbers of the frame's own rows")
+    by_row = ctx.expr(other, frame)  # a Series of other rows: pandas aligns it (a TODO)
+    op = _ROW_WISE_OPS[call.name]
+    pivoted, cells = number_cells(frame)
+    if pivoted:
+        values = emit.pl("exclude", *frame.index, _BY_ROW)
+        kinds = {cells}
+    elif frame.columns is not None:
+        names = [c for c in frame.columns if c not in frame.index]
+        kinds = {frame.dtype(c) for c in names}
+        if not names or not kinds <= {"int", "float"}:
+            raise Unsupported("columns that are not all known numbers")
+        values = emit.col(names)
+    else:
+        raise Unsupported("the frame's columns are not known")
+    if op == "/" or "float" in kinds or other.dtype == "float":
+        kind: str | None = "float"
+    elif kinds == {"int"}:
+        kind = "int"
+    else:
+        raise Unsupported("cells whose type the data decides (int or float) with a whole number")
+    result = emit.binop(values, op, emit.col(_BY_ROW))
+    if kind == "float":
+        result = result.method("fill_nan", None)  # 0 / 0, inf - inf: missing, as NaN in pandas
+    code = frame.code.method("with_columns", by_row.method("alias", _BY_ROW)) \
+        .method("with_columns", result).method("drop", _BY_ROW)
+    if pivoted:
+        return replace(derive(frame, code, same_rows=True), number_cells=(code.text, kind))
+    return with_column_updates(frame, code, dict.fromkeys(names, kind))
