@@ -16,10 +16,27 @@ import libcst as cst
 
 
 def pipes_as_calls(module: cst.Module) -> cst.Module:
+    if ".pipe(" not in module.code or _imports_polars(module):
+        # (a script that imports Polars, porter's own output among them, pipes LazyFrames)
+        return module
     functions = _defined_once(module)
-    if not functions or ".pipe(" not in module.code:
+    if not functions:
         return module
     return module.visit(_Rewrite(functions))
+
+
+def _imports_polars(module: cst.Module) -> bool:
+    for stmt in module.body:
+        if not isinstance(stmt, cst.SimpleStatementLine):
+            continue
+        for small in stmt.body:
+            if isinstance(small, cst.Import) and any(
+                    cst.Module([]).code_for_node(a.name).split(".")[0] == "polars" for a in small.names):
+                return True
+            if isinstance(small, cst.ImportFrom) and small.module is not None \
+                    and cst.Module([]).code_for_node(small.module).split(".")[0] == "polars":
+                return True
+    return False
 
 
 def _defined_once(module: cst.Module) -> set[str]:

@@ -849,9 +849,9 @@ def _guess_definition(dayfirst: bool = False) -> str:
         "        values, known = columns\n"
         "        if known.len() == 0 or known.all():\n"
         '            return pl.Series(values.name, [None] * values.len(), dtype=pl.Datetime("us"))\n'
-        "        import pandas as pd\n"
+        '        pandas = __import__("pandas")\n'
         "\n"
-        '        dates = pd.to_datetime(values.to_pandas(), errors="coerce" if coerce else "raise"'
+        '        dates = pandas.to_datetime(values.to_pandas(), errors="coerce" if coerce else "raise"'
         + (", dayfirst=True" if dayfirst else "") + ")\n"
         '        if dates.dtype.kind != "M" or getattr(dates.dtype, "tz", None) is not None:\n'
         '            raise ValueError("pandas reads these values as dates with a time zone, "\n'
