@@ -43,6 +43,15 @@ def frame_lambda(node: cst.Lambda, frame: Frame, ctx: RuleContext) -> Value:
     return _checked(ctx.evaluate(node.body, {params[0].name.value: frame}), ctx)
 
 
+def series_lambda(node: cst.Lambda, column: Column, ctx: RuleContext) -> Value:
+    """`lambda s: <expression of s>` with s standing for the whole column (a Series, as
+    sort_values' key= receives it)."""
+    params = node.params.params
+    if len(params) != 1 or node.params.star_arg not in (None, cst.MaybeSentinel.DEFAULT):
+        raise Unsupported("a lambda with more than one parameter")
+    return _checked(ctx.evaluate(node.body, {params[0].name.value: replace(column, sites=())}), ctx)
+
+
 def element_lambda(node: cst.Lambda, column: Column, ctx: RuleContext) -> Column:
     """`lambda x: <expression of one value>` as an expression over `column`."""
     params = node.params.params
