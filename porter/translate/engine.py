@@ -1531,8 +1531,9 @@ class _Walker:
         value = evaluator.eval(call)
         if isinstance(receiver_node, cst.Name) and isinstance(value, (Frame, PandasValue, Indexed)):
             return self.bind(receiver_node.value, value, env, indent)
-        if isinstance(receiver_node, cst.Subscript) and isinstance(value, Column):
-            # pandas 3 (copy-on-write): the method changes a copy of the column, never the frame
+        if isinstance(receiver_node, (cst.Subscript, cst.Attribute)) and isinstance(value, Column):
+            # pandas 3 (copy-on-write): the method changes a copy of the column, never the
+            # frame (df["x"] and df.x alike)
             line, end_line = self.services.position(expr)
             site = SiteDraft("series.inplace", "inplace", "todo", 0.0,
                              "chained assignment with inplace=True changes nothing in pandas 3 "
