@@ -1140,8 +1140,11 @@ def cut(call: PandasCall, ctx: RuleContext) -> Value:
     every bin and missing values (NaN fails every bin, as in pandas) are missing; the labels
     become an Enum, which sorts in the labels' order as pandas sorts its categorical (ordered or
     not).
+    labels=False gives the bin numbers 0, 1, ...: integers, which pandas holds as floats when
+    a value is missing or outside every bin (the column is marked float_int: written 1.0 then,
+    as pandas writes it).
     Caveats: a number of bins (the edges depend on the data), labels=None (pandas' Interval
-    values), labels=False (bin numbers) and repeated labels are TODOs.
+    values) and repeated labels are TODOs.
     """
     ctx.reject_unknown(call, "x", "bins", "right", "labels", "include_lowest", "ordered",
                        positional=3)
@@ -1157,9 +1160,11 @@ def cut(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("bins that do not increase (pandas raises)")
     right = call.const("right", 2, True, kinds=(bool,))
     labels = call.const("labels", 3, None, kinds=(list, tuple, bool))
-    if not isinstance(labels, (list, tuple)) or not all(isinstance(x, str) for x in labels):
-        raise Unsupported("labels other than a list of texts (pandas' Interval values or bin "
-                          "numbers)")
+    numbered = labels is False
+    if numbered:
+        labels = list(range(len(bins) - 1))  # the bin numbers
+    elif not isinstance(labels, (list, tuple)) or not all(isinstance(x, str) for x in labels):
+        raise Unsupported("labels other than a list of texts or False (pandas' Interval values)")
     if len(labels) != len(bins) - 1:
         raise Unsupported("a label count that does not match the bins (pandas raises)")
     if len(set(labels)) != len(labels):
@@ -1177,6 +1182,11 @@ def cut(call: PandasCall, ctx: RuleContext) -> Value:
         code = emit.pl("when", test).method("then", step) if code is None \
             else code.method("when", test).method("then", step)
     assert code is not None
+    if numbered:
+        # a value missing or outside every bin has no number: pandas' bin numbers are then
+        # float64 (1.0), which the mark writes as pandas does while such a value remains
+        result = derived_column(column, code.method("cast", emit.atom("pl.Int64")), dtype="int")
+        return replace(result, float_int="cut() left a value missing or outside every bin")
     code = code.method("cast", emit.pl("Enum", list(labels)))
     return derived_column(column, code, dtype="enum")  # ordered: sorts in the labels' order
 
