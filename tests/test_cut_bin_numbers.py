@@ -59,3 +59,17 @@ def test_bin_numbers_used_later_match_pandas(after: str) -> None:
 def test_csv_text_is_pandas_text(call: str, tmp_path: Path) -> None:
     # 1.0 where pandas holds floats, 1 where every value has a bin
     same_text(FRAME + f'df["band"] = {call}\ndf.to_csv("out.csv", index=False)\n', tmp_path)
+
+
+QCUTS = [
+    pytest.param('pd.qcut(df["v"], 3, labels=False)', id="qcut floats with NaN: float numbers"),
+    pytest.param('pd.qcut(df["n"], 4, labels=False)', id="qcut ints, every value in a bin: int64"),
+    pytest.param('pd.qcut(df["n"], [0, 0.5, 1], labels=False)', id="qcut by quantiles"),
+]
+
+
+@pytest.mark.parametrize("call", QCUTS)
+def test_qcut_bin_numbers_match_pandas(call: str, tmp_path: Path) -> None:
+    result = differential(FRAME + f'df["band"] = {call}\nresult = df.assign(t=df["band"].astype(str))\n')
+    assert "TODO(porter)" not in result.converted_text
+    same_text(FRAME + f'df["band"] = {call}\ndf.to_csv("out.csv", index=False)\n', tmp_path)

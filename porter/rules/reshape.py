@@ -722,8 +722,8 @@ def qcut(call: PandasCall, ctx: RuleContext) -> Value:
     Caveats: pandas raises when two edges are equal (many ties, fewer distinct values than
     bins, no values) and the Polars code leaves those bins empty instead (0.95); labels=None
     (pandas' Interval values, whose text depends on the edges), duplicates="drop" and
-    retbins=True are TODOs. labels=False gives Int64 where pandas gives float bin numbers when a
-    value is missing (0.9).
+    retbins=True are TODOs. labels=False gives integers, marked as pandas' floats while a
+    value is missing (float_int: written 1.0 as pandas writes it).
     """
     ctx.reject_unknown(call, "x", "q", "labels", "retbins", "precision", "duplicates",
                        positional=6)
@@ -756,8 +756,6 @@ def qcut(call: PandasCall, ctx: RuleContext) -> Value:
     labels = call.const("labels", 2, None, kinds=(list, tuple, bool))
     bins = len(quantiles) - 1
     if labels is False:
-        ctx.lower("pandas gives float bin numbers (1.0) when a value is missing or outside the "
-                  "edges; Polars gives integers with missing values", 0.9)
         steps: list[Any] = list(range(bins))
     elif isinstance(labels, (list, tuple)) and all(isinstance(x, str) for x in labels):
         if len(labels) != bins:
@@ -784,7 +782,10 @@ def qcut(call: PandasCall, ctx: RuleContext) -> Value:
             else code.method("when", test).method("then", step)
     assert code is not None
     if labels is False:
-        return derived_column(column, code.method("cast", emit.atom("pl.Int64")), dtype="int")
+        # pandas gives float bin numbers (1.0) while a value is missing or outside the edges:
+        # the mark writes them as pandas does
+        result = derived_column(column, code.method("cast", emit.atom("pl.Int64")), dtype="int")
+        return replace(result, float_int="qcut() left a value missing")
     code = code.method("cast", emit.pl("Enum", list(labels)))
     return derived_column(column, code, dtype="enum")
 
