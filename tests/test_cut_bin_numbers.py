@@ -73,3 +73,40 @@ def test_qcut_bin_numbers_match_pandas(call: str, tmp_path: Path) -> None:
     result = differential(FRAME + f'df["band"] = {call}\nresult = df.assign(t=df["band"].astype(str))\n')
     assert "TODO(porter)" not in result.converted_text
     same_text(FRAME + f'df["band"] = {call}\ndf.to_csv("out.csv", index=False)\n', tmp_path)
+
+
+# Many ties: quantiles that fall on one value, which duplicates="drop" keeps once.
+TIES = """\
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({
+    "v": [1.0, 1.0, 1.0, 1.0, 2.0, np.nan, 3.0, 1.0, 5.0, 5.0],
+    "c": [0, 0, 0, 0, 0, 0, 0, 1, 1, 2],
+    "z": [7, 7, 7, 7, 7, 7, 7, 7, 7, 7],
+})
+"""
+
+DROPS = [
+    pytest.param('pd.qcut(df["v"], 4, labels=False, duplicates="drop")', id="ties and NaN"),
+    pytest.param('pd.qcut(df["v"], 10, labels=False, duplicates="drop")', id="more bins than values"),
+    pytest.param('pd.qcut(df["c"], 5, labels=False, duplicates="drop")', id="ints, most edges equal"),
+    pytest.param('pd.qcut(df["c"], 2, labels=False, duplicates="drop")', id="no edge equal"),
+    pytest.param('pd.qcut(df["z"], 3, labels=False, duplicates="drop")', id="one distinct edge: no bins"),
+    pytest.param('pd.qcut(df["v"], [0.25, 0.5, 0.9], labels=False, duplicates="drop")',
+                 id="quantiles not from 0 to 1: values outside"),
+    pytest.param('pd.qcut(df["c"], [0, 0.1, 0.5, 0.75, 1], labels=False, duplicates="drop")',
+                 id="a list with equal edges"),
+]
+
+
+@pytest.mark.parametrize("call", DROPS)
+def test_qcut_numbers_over_distinct_edges_match_pandas(call: str, tmp_path: Path) -> None:
+    result = differential(TIES + f'df["band"] = {call}\nresult = df.assign(t=df["band"].astype(str))\n')
+    assert "pandas_qcut_numbers(" in result.converted_text
+    assert "TODO(porter)" not in result.converted_text
+    same_text(TIES + f'df["band"] = {call}\ndf.to_csv("out.csv", index=False)\n', tmp_path)
+
+
+def test_qcut_numbers_over_distinct_edges_grouped_match_pandas() -> None:
+    differential(TIES + 'df["band"] = pd.qcut(df["v"], 4, labels=False, duplicates="drop")\n'
+                 'result = df.groupby("band", as_index=False)["c"].sum()\n')

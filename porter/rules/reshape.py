@@ -18,7 +18,9 @@ from porter.rules import rule
 from porter.rules.groupby import agg_expr, how_name, pivot_groups, pivot_margins, pivot_sorted
 from porter.rules.io import polars_dtype
 from porter.rules.ops import float32_possible
-from porter.rules.io_options import COUNT_MARGINS_FUNCTION, DIVIDE_FUNCTION, QUANTILE_FUNCTION
+from porter.rules.io_options import (
+    COUNT_MARGINS_FUNCTION, DIVIDE_FUNCTION, QCUT_NUMBERS_FUNCTION, QUANTILE_FUNCTION,
+)
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, check_same_rows, column_names, derived_column,
 )
@@ -751,9 +753,13 @@ def qcut(call: PandasCall, ctx: RuleContext) -> Value:
     if call.const("retbins", 3, False, kinds=(bool,)):
         raise Unsupported("retbins=True returns the edges too")
     call.const("precision", 4, 3, kinds=(int,))  # only shapes Interval labels
-    if call.const("duplicates", 5, "raise", kinds=(str,)) != "raise":
-        raise Unsupported("duplicates='drop': the number of bins depends on the data")
+    duplicates = call.const("duplicates", 5, "raise", kinds=(str,))
     labels = call.const("labels", 2, None, kinds=(list, tuple, bool))
+    if duplicates == "drop" and labels is False:
+        return _qcut_numbers_of_distinct_edges(column, quantiles)
+    if duplicates != "raise":
+        raise Unsupported(f"duplicates={duplicates!r} with labels other than False: the number "
+                          "of bins depends on the data")
     bins = len(quantiles) - 1
     if labels is False:
         steps: list[Any] = list(range(bins))
@@ -788,6 +794,21 @@ def qcut(call: PandasCall, ctx: RuleContext) -> Value:
         return replace(result, float_int="qcut() left a value missing")
     code = code.method("cast", emit.pl("Enum", list(labels)))
     return derived_column(column, code, dtype="enum")
+
+
+def _qcut_numbers_of_distinct_edges(column: Column, quantiles: list[float]) -> Value:
+    """pd.qcut(s, q, labels=False, duplicates="drop"): the bin numbers over the distinct
+    edges (pandas_qcut_numbers, written once into the script). pandas keeps each edge once
+    (equal quantiles: ties, few distinct values) and numbers a value by the distinct edges
+    below it (searchsorted, side="left"), a value on the lowest edge being in bin 0; a value
+    below the lowest edge or above the highest (q as a list not from 0 to 1) or missing has
+    none, and with one distinct edge no value has one. The edges are those qcut computes
+    (pandas_quantile, the minimum, the maximum)."""
+    x = column.code
+    code = emit.call(QCUT_NUMBERS_FUNCTION, x, [_edge(x, p) for p in quantiles])
+    result = derived_column(column, code, dtype="int")
+    # pandas gives float bin numbers (1.0) while a value has none: the mark writes them so
+    return replace(result, float_int="qcut() left a value missing")
 
 
 def _edge(x: Code, p: float) -> Code:
