@@ -811,9 +811,9 @@ def join_parts(call: PandasCall, ctx: RuleContext) -> Value:
         # other.set_index("k"): its frame, the key held as its index
         other = replace(other.frame, index=(other.key,), index_unnamed=False)
     if isinstance(other, Column) and other.name is not None and other.frame.index \
-            and not other.element and not call.has("on") and other.name not in other.frame.index:
+            and not other.element and other.name not in other.frame.index:
         # a named Series labelled by key columns: the frame of its keys and its values
-        # (pandas joins it as that one-column frame)
+        # (pandas joins it as that one-column frame, also on= a column of the left)
         other = Frame(series_frame(other), columns=(*other.frame.index, other.name),
                       index=other.frame.index, index_unnamed=other.frame.index_unnamed,
                       dtypes=tuple((k, t) for k, t in other.frame.dtypes if k in other.frame.index)
