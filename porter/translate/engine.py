@@ -1831,6 +1831,10 @@ class _Walker:
         if not isinstance(frame, Frame):
             return None
         value = evaluator.eval(value_node)
+        if key == "frame.set_columns" and isinstance(value, Opaque) and value.node is None \
+                and isinstance(value_node, cst.ListComp):
+            # the rule reads the comprehension's string methods (new names computed now)
+            value = replace(value, node=value_node)
         call = PandasCall(frame, target.attr.value, (value,), node=target)
         result = evaluator.dispatch(key, call, target)
         if result is frame:
