@@ -254,7 +254,6 @@ def test_cut_bands_sort_in_the_labels_order() -> None:
 @pytest.mark.parametrize("call", [
     'pd.cut(df["v"], 3)',
     'pd.cut(df["v"], [0, 1, 2])',
-    'pd.cut(df["v"], [0, 1, 2], labels=False)',
     'pd.cut(df["v"], [0, 1, 2], labels=["a", "a"])',
     'pd.cut(df["k"], [0, 1, 2], labels=["a", "b"])',
 ])

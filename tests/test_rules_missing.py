@@ -220,6 +220,14 @@ def test_chained_inplace_fillna_changes_nothing() -> None:
     differential(FRAME + 'df["a"].fillna(0, inplace=True)\nresult = df\n')
 
 
+def test_chained_inplace_fillna_on_an_attribute_changes_nothing() -> None:
+    # df.a is df["a"]: pandas 3 fills a copy; the frame stays Polars after it (no hand-over)
+    result = differential(FRAME + 'df.a.fillna(0, inplace=True)\ndf.a.replace(1.0, 5.0, inplace=True)\n'
+                          'result = df[df["a"] > 0]\n')
+    assert result.converted_text.count("# TODO(porter): series.inplace") == 2
+    assert "to_pandas" not in result.converted_text
+
+
 # -- interpolate ------------------------------------------------------------------------------------
 
 # leading and trailing runs of missing values (NaN and None side by side), gaps of one and of

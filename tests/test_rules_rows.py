@@ -69,8 +69,10 @@ def test_ports(before: str, expected: str) -> None:
 TODOS = [
     pytest.param('r = df.nlargest(2, "v", keep="last")', "frame.nlargest", id="nlargest keep last"),
     pytest.param('r = df.nlargest(2, ["v", "n"], keep="all")', "frame.nlargest", id="nlargest keep all on two columns"),
-    pytest.param('r = df.sort_values("k", key=lambda s: s.str.lower())', "frame.sort_values",
-                 id="sort key function"),
+    pytest.param('r = df.sort_values("v", key=np.abs)', "frame.sort_values",
+                 id="sort key other than a lambda"),
+    pytest.param('r = df.sort_values("v", key=lambda s: s.values)', "frame.sort_values",
+                 id="sort key giving no column"),
     pytest.param('r = df.replace({"k": {"a": "A"}})', "frame.replace", id="nested replace dict"),
     pytest.param('s2 = df["n"].replace(1, "one")', "series.replace", id="replace with another type"),
     pytest.param("r = df.replace(np.nan, 0)", "frame.replace",

@@ -845,9 +845,9 @@ def join_parts(call: PandasCall, ctx: RuleContext) -> Value:
         # other.set_index("k"): its frame, the key held as its index
         other = replace(other.frame, index=(other.key,), index_unnamed=False)
     if isinstance(other, Column) and other.name is not None and other.frame.index \
-            and not other.element and not call.has("on") and other.name not in other.frame.index:
+            and not other.element and other.name not in other.frame.index:
         # a named Series labelled by key columns: the frame of its keys and its values
-        # (pandas joins it as that one-column frame)
+        # (pandas joins it as that one-column frame, also on= a column of the left)
         other = Frame(series_frame(other), columns=(*other.frame.index, other.name),
                       index=other.frame.index, index_unnamed=other.frame.index_unnamed,
                       dtypes=tuple((k, t) for k, t in other.frame.dtypes if k in other.frame.index)
@@ -1211,6 +1211,9 @@ def set_columns(call: PandasCall, ctx: RuleContext) -> Value:
                       same_rows=True, columns=None, dtypes=(), column_pairs=(),
                       int_labels_except=None, columns_name=None,
                       nullable_ints=_marks_after_renaming(frame), unsure_ints=())
+    comprehended = _names_comprehension(value, frame, ctx)
+    if comprehended is not None:
+        value = Opaque(emit.lit(comprehended), const=comprehended)
     old_names = data_columns(frame).method("collect_schema").method("names")
     if not (isinstance(value, Opaque) and isinstance(value.const, list)):
         if isinstance(value, Opaque):
@@ -1242,6 +1245,35 @@ def set_columns(call: PandasCall, ctx: RuleContext) -> Value:
     return derive(frame, code, same_rows=True, columns=(*frame.index, *new) if frame.index else tuple(new),
                   dtypes=(), column_pairs=(), int_labels_except=None, columns_name=None,
                   nullable_ints=_marks_after_renaming(frame), unsure_ints=())
+
+
+def _names_comprehension(value: Value, frame: Frame, ctx: RuleContext) -> list[str] | None:
+    """df.columns = [c.strip().lower().replace(" ", "_") for c in df.columns]: the new names
+    computed now, by the same Python string methods on each name, when porter knows the
+    columns (None: not such a comprehension, or the names are not known)."""
+    from porter.rules.selection import (
+        ColumnNames, apply_name_ops, known_data_columns, lambda_name_ops,
+    )
+    node = value.node if isinstance(value, Opaque) else None
+    if not isinstance(node, cst.ListComp):
+        return None
+    loop = node.for_in
+    if loop.inner_for_in is not None or loop.ifs or loop.asynchronous is not None \
+            or not isinstance(loop.target, cst.Name):
+        return None
+    names = ctx.evaluate(loop.iter, {})
+    if not (isinstance(names, Scalar) and names.of is not None
+            and names.of.code.text == frame.code.text):
+        return None
+    known = known_data_columns(frame)
+    if known is None:
+        return None
+    ops = lambda_name_ops(cst.Lambda(
+        params=cst.Parameters(params=[cst.Param(name=cst.Name(loop.target.value))]), body=node.elt))
+    if ops is None:
+        return None
+    before = names.ops if isinstance(names, ColumnNames) else ()
+    return [apply_name_ops(apply_name_ops(c, before), ops) for c in known]
 
 
 def _marks_after_renaming(frame: Frame) -> tuple[tuple[str, str], ...] | None:

@@ -43,6 +43,15 @@ def frame_lambda(node: cst.Lambda, frame: Frame, ctx: RuleContext) -> Value:
     return _checked(ctx.evaluate(node.body, {params[0].name.value: frame}), ctx)
 
 
+def series_lambda(node: cst.Lambda, column: Column, ctx: RuleContext) -> Value:
+    """`lambda s: <expression of s>` with s standing for the whole column (a Series, as
+    sort_values' key= receives it)."""
+    params = node.params.params
+    if len(params) != 1 or node.params.star_arg not in (None, cst.MaybeSentinel.DEFAULT):
+        raise Unsupported("a lambda with more than one parameter")
+    return _checked(ctx.evaluate(node.body, {params[0].name.value: replace(column, sites=())}), ctx)
+
+
 def element_lambda(node: cst.Lambda, column: Column, ctx: RuleContext) -> Column:
     """`lambda x: <expression of one value>` as an expression over `column`."""
     params = node.params.params
@@ -1131,8 +1140,11 @@ def cut(call: PandasCall, ctx: RuleContext) -> Value:
     every bin and missing values (NaN fails every bin, as in pandas) are missing; the labels
     become an Enum, which sorts in the labels' order as pandas sorts its categorical (ordered or
     not).
+    labels=False gives the bin numbers 0, 1, ...: integers, which pandas holds as floats when
+    a value is missing or outside every bin (the column is marked float_int: written 1.0 then,
+    as pandas writes it).
     Caveats: a number of bins (the edges depend on the data), labels=None (pandas' Interval
-    values), labels=False (bin numbers) and repeated labels are TODOs.
+    values) and repeated labels are TODOs.
     """
     ctx.reject_unknown(call, "x", "bins", "right", "labels", "include_lowest", "ordered",
                        positional=3)
@@ -1148,9 +1160,11 @@ def cut(call: PandasCall, ctx: RuleContext) -> Value:
         raise Unsupported("bins that do not increase (pandas raises)")
     right = call.const("right", 2, True, kinds=(bool,))
     labels = call.const("labels", 3, None, kinds=(list, tuple, bool))
-    if not isinstance(labels, (list, tuple)) or not all(isinstance(x, str) for x in labels):
-        raise Unsupported("labels other than a list of texts (pandas' Interval values or bin "
-                          "numbers)")
+    numbered = labels is False
+    if numbered:
+        labels = list(range(len(bins) - 1))  # the bin numbers
+    elif not isinstance(labels, (list, tuple)) or not all(isinstance(x, str) for x in labels):
+        raise Unsupported("labels other than a list of texts or False (pandas' Interval values)")
     if len(labels) != len(bins) - 1:
         raise Unsupported("a label count that does not match the bins (pandas raises)")
     if len(set(labels)) != len(labels):
@@ -1168,6 +1182,11 @@ def cut(call: PandasCall, ctx: RuleContext) -> Value:
         code = emit.pl("when", test).method("then", step) if code is None \
             else code.method("when", test).method("then", step)
     assert code is not None
+    if numbered:
+        # a value missing or outside every bin has no number: pandas' bin numbers are then
+        # float64 (1.0), which the mark writes as pandas does while such a value remains
+        result = derived_column(column, code.method("cast", emit.atom("pl.Int64")), dtype="int")
+        return replace(result, float_int="cut() left a value missing or outside every bin")
     code = code.method("cast", emit.pl("Enum", list(labels)))
     return derived_column(column, code, dtype="enum")  # ordered: sorts in the labels' order
 

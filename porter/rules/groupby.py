@@ -515,6 +515,68 @@ def _builtin_pair(spec: Value, ctx: RuleContext) -> tuple[str, str] | None:
     return column.const, how_name(ctx.evaluate(function, {}))
 
 
+# numpy's functions whose name (pandas' label for the output column) is the attribute's
+NUMPY_LABELLED = frozenset({
+    "sum", "mean", "max", "min", "amax", "amin", "std", "var", "median", "nansum", "nanmean",
+    "nanmax", "nanmin", "nanmedian", "nanstd", "nanvar", "size",
+})
+
+
+def _function_item(node: cst.BaseExpression, ctx: RuleContext) -> tuple[Any, str] | None:
+    """One aggregation of a dict or list given to agg: (what add() reads, pandas' label of its
+    output column). A text is itself; a numpy function (pandas 3 calls it on each group's
+    Series) and the builtins sum / min / max / len (called on each group's values) are read
+    by how_name and labelled by their __name__, as pandas labels them. None: not one of these."""
+    if isinstance(node, cst.Name) and node.value in ("sum", "min", "max", "len"):
+        value = ctx.evaluate(node, {})
+        return how_name(value), node.value
+    value = ctx.evaluate(node, {})
+    if isinstance(value, Opaque) and isinstance(value.const, str):
+        return value.const, value.const
+    if isinstance(value, Module) and value.qualname.startswith("numpy."):
+        name = value.qualname.rsplit(".", 1)[-1]
+        if name in NUMPY_LABELLED:
+            return how_name(value), name
+    return None
+
+
+def _functions_spec(spec: Value, ctx: RuleContext) -> Any:
+    """A dict or list given to agg that holds numpy functions or Python builtins beside texts
+    ({"kg": np.mean, "n": [np.sum, "max"]}): the same structure with each function as a
+    (how, label) pair; None when it is not one porter reads."""
+    node = spec.node if isinstance(spec, Opaque) else None
+
+    def functions(items: cst.BaseExpression) -> Any:
+        if isinstance(items, cst.List):
+            read = [_function_item(e.value, ctx) for e in items.elements
+                    if isinstance(e, cst.Element)]
+            if len(read) != len(items.elements) or None in read:
+                return None
+            if len({label for _, label in read}) != len(read):
+                # [np.sum, sum]: two outputs of one label (pandas keeps both, a Polars frame
+                # cannot)
+                raise Unsupported("two functions of one name in a list of aggregations")
+            return read
+        return _function_item(items, ctx)
+
+    if isinstance(node, cst.Dict):
+        result: dict[str, Any] = {}
+        for element in node.elements:
+            if not isinstance(element, cst.DictElement):
+                return None
+            key = ctx.evaluate(element.key, {})
+            if not (isinstance(key, Opaque) and isinstance(key.const, str)) or key.const in result:
+                return None
+            hows = functions(element.value)
+            if hows is None:
+                return None
+            result[key.const] = hows
+        return result
+    if isinstance(node, cst.List):
+        return functions(node)
+    return None
+
+
 def grouped_of(call: PandasCall) -> Grouped:
     assert isinstance(call.receiver, Grouped)
     return call.receiver
@@ -1218,17 +1280,27 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
                 and set(call.kwargs) <= ({"dropna"} if spec == "nunique" else {"min_count"})):
             raise Unsupported("agg with extra arguments")
         return reduce(PandasCall(grouped, spec, (), dict(call.kwargs), call.node), ctx)
+    if spec is None and isinstance(spec_value, Opaque):
+        # numpy functions or builtins among texts: each as (how, pandas' label of its output)
+        spec = _functions_spec(spec_value, ctx)
+
+    def how_label(how: Any) -> tuple[str, str]:
+        return (how[0], how[1]) if isinstance(how, tuple) else (how, str(how))
+
     if isinstance(spec, dict):
         # any list makes every output a (column, function) pair in pandas: flatten them all
         flattened = any(isinstance(hows, list) for hows in spec.values())
+        pairs_made: list[tuple[str, tuple[str, str]]] = []
         for column, hows in spec.items():
-            for how in hows if isinstance(hows, list) else [hows]:
-                add(column, how, f"{column}_{how}" if flattened else column)
+            for item in hows if isinstance(hows, list) else [hows]:
+                how, label = how_label(item)
+                name = f"{column}_{label}" if flattened else column
+                add(column, how, name)
+                pairs_made.append((name, (column, label)))
         if flattened:
             ctx.lower("pandas makes MultiIndex columns here; porter names them column_function", 0.9)
             result = aggregate(grouped, exprs, names, ctx, dtypes=dtypes)
-            pairs = tuple((f"{column}_{how}", (column, str(how))) for column, hows in spec.items()
-                          for how in (hows if isinstance(hows, list) else [hows]))
+            pairs = tuple(pairs_made)
             return replace(result, column_pairs=pairs) if isinstance(result, Frame) else result
         return aggregate(grouped, exprs, names, ctx, dtypes=dtypes)
     if isinstance(spec, list):
@@ -1237,14 +1309,17 @@ def agg(call: PandasCall, ctx: RuleContext) -> Value:
             raise Unsupported("a list of functions over several columns makes MultiIndex columns")
         if not grouped.single:
             # g[["kg"]].agg([...]): a frame's columns, (column, function) pairs in pandas
-            for how in spec:
-                add(columns[0], str(how), f"{columns[0]}_{how}")
+            for item in spec:
+                how, label = how_label(item)
+                add(columns[0], how, f"{columns[0]}_{label}")
             ctx.lower("pandas makes MultiIndex columns here; porter names them column_function", 0.9)
             result = aggregate(grouped, exprs, names, ctx, dtypes=dtypes)
-            pairs = tuple((f"{columns[0]}_{how}", (columns[0], str(how))) for how in spec)
+            pairs = tuple((f"{columns[0]}_{how_label(item)[1]}", (columns[0], how_label(item)[1]))
+                          for item in spec)
             return replace(result, column_pairs=pairs) if isinstance(result, Frame) else result
-        for how in spec:
-            add(columns[0], str(how), str(how))
+        for item in spec:
+            how, label = how_label(item)
+            add(columns[0], how, label)
         return aggregate(grouped, exprs, names, ctx, dtypes=dtypes)
     if _is_function(spec_value):
         # g["kg"].agg(lambda s: s.max() - s.min()), g.agg(spread): each column's own value

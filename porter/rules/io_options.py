@@ -279,6 +279,29 @@ def pandas_quantile(column, q):
     )
 """
 
+# A function, defined once at the top of a converted script, that numbers the bins of
+# pd.qcut(..., labels=False, duplicates="drop") as pandas does (over the distinct edges).
+QCUT_NUMBERS_FUNCTION = "pandas_qcut_numbers"
+QCUT_NUMBERS_DEFINITION = """\
+def pandas_qcut_numbers(column, edges):
+    \"\"\"The bin numbers pd.qcut(..., labels=False, duplicates="drop") gives: pandas keeps
+    each edge once and numbers a value by the distinct edges below it (a value on the lowest
+    edge is in bin 0); a value below the lowest edge or above the highest, or missing, has
+    none, and with one distinct edge no value has one. The edges do not decrease: an edge is
+    distinct where it differs from the one before.\"\"\"
+    distinct = [pl.lit(True)] + [high != low for low, high in zip(edges, edges[1:])]
+    # (a missing value compares as null, which the sum leaves out: it has no edge below it)
+    below = pl.sum_horizontal([((edge < column) & new).cast(pl.Int64)
+                               for edge, new in zip(edges, distinct)])
+    count = pl.sum_horizontal([new.cast(pl.Int64) for new in distinct])
+    position = pl.when(column == edges[0]).then(1).otherwise(below)
+    return (
+        pl.when((position == 0) | (position == count)).then(None)
+        .otherwise(position - 1)
+        .cast(pl.Int64)
+    )
+"""
+
 # A function, defined once at the top of a converted script, that computes describe()'s
 # quartiles as pandas does: numpy's percentile of each column's values, one pass for all three
 # (an expression of Polars' lower and higher quantiles computes each of them several times).

@@ -927,6 +927,8 @@ def round_(call: PandasCall, ctx: RuleContext) -> Value:
             ctx.lower("a computed float on a half can round the other way (floats are added in "
                       "another order)", 0.98)
         return derived_column(receiver, code, dtype=receiver.dtype)
+    if isinstance(decimals, dict) and isinstance(receiver, Frame):
+        return _round_by_column(receiver, decimals, ctx)
     if not isinstance(decimals, int) or decimals < 0:
         raise Unsupported("rounding to tens or hundreds (negative decimals) of a frame or of a "
                           "column whose type porter does not know")
@@ -958,6 +960,41 @@ def round_(call: PandasCall, ctx: RuleContext) -> Value:
         # the cells of a pivoted table stay numbers of their type: still a table of them
         return replace(derive(receiver, code, same_rows=True), number_cells=(code.text, cells))
     return derive(receiver, code, same_rows=True)
+
+
+def _round_by_column(frame: Frame, decimals: dict[object, object], ctx: RuleContext) -> Value:
+    """df.round({"kg": 1, "price": 2}): each float column named rounded to its decimals, as
+    pandas rounds it (half to even); a name that is no column, a column of whole numbers or
+    True/False (unchanged by rounding) and a text or date column (pandas leaves what is not
+    a number) are left as they are, and so is the index held in columns."""
+    if not all(isinstance(k, str) and isinstance(v, int) and not isinstance(v, bool) and v >= 0
+               for k, v in decimals.items()):
+        raise Unsupported("decimals other than whole numbers from 0 up by column name")
+    if frame.columns is None:
+        raise Unsupported("rounding by column of a frame whose columns porter does not know")
+    rounded: list[Code] = []
+    for name, places in decimals.items():
+        if name not in frame.columns or name in frame.index:
+            continue  # pandas ignores it (and never rounds the index)
+        dtype = frame.dtype(name)
+        if dtype in ("int", "bool", "str", "date", "datetime", "duration", "category", "enum"):
+            continue  # unchanged by pandas' round
+        if dtype != "float":
+            raise Unsupported(f"rounding column {name!r}, whose type porter does not know")
+        column = emit.col(name)
+        code = any_float_round(column, places) if places > 0 and float32_possible(ctx) \
+            else column.method("round", places)
+        rounded.append(code)
+    if not rounded:
+        return derive(frame, frame.code, same_rows=True)
+    ctx.lower("a computed float on a decimal half can round the other way (floats are added "
+              "in another order)", 0.98)
+    code = frame.code.method("with_columns", *rounded)
+    from porter.translate.context import number_cells
+    pivoted, cells = number_cells(frame)
+    if pivoted:
+        return replace(derive(frame, code, same_rows=True), number_cells=(code.text, cells))
+    return derive(frame, code, same_rows=True)
 
 
 def float32_round(code: Code, decimals: int) -> Code:

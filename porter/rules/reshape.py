@@ -18,7 +18,9 @@ from porter.rules import rule
 from porter.rules.groupby import agg_expr, how_name, pivot_groups, pivot_margins, pivot_sorted
 from porter.rules.io import polars_dtype
 from porter.rules.ops import float32_possible
-from porter.rules.io_options import COUNT_MARGINS_FUNCTION, DIVIDE_FUNCTION, QUANTILE_FUNCTION
+from porter.rules.io_options import (
+    COUNT_MARGINS_FUNCTION, DIVIDE_FUNCTION, QCUT_NUMBERS_FUNCTION, QUANTILE_FUNCTION,
+)
 from porter.translate.context import (
     MIXED_COLUMN, PandasCall, RuleContext, Unsupported, check_same_rows, column_names, derived_column,
 )
@@ -722,8 +724,8 @@ def qcut(call: PandasCall, ctx: RuleContext) -> Value:
     Caveats: pandas raises when two edges are equal (many ties, fewer distinct values than
     bins, no values) and the Polars code leaves those bins empty instead (0.95); labels=None
     (pandas' Interval values, whose text depends on the edges), duplicates="drop" and
-    retbins=True are TODOs. labels=False gives Int64 where pandas gives float bin numbers when a
-    value is missing (0.9).
+    retbins=True are TODOs. labels=False gives integers, marked as pandas' floats while a
+    value is missing (float_int: written 1.0 as pandas writes it).
     """
     ctx.reject_unknown(call, "x", "q", "labels", "retbins", "precision", "duplicates",
                        positional=6)
@@ -751,13 +753,15 @@ def qcut(call: PandasCall, ctx: RuleContext) -> Value:
     if call.const("retbins", 3, False, kinds=(bool,)):
         raise Unsupported("retbins=True returns the edges too")
     call.const("precision", 4, 3, kinds=(int,))  # only shapes Interval labels
-    if call.const("duplicates", 5, "raise", kinds=(str,)) != "raise":
-        raise Unsupported("duplicates='drop': the number of bins depends on the data")
+    duplicates = call.const("duplicates", 5, "raise", kinds=(str,))
     labels = call.const("labels", 2, None, kinds=(list, tuple, bool))
+    if duplicates == "drop" and labels is False:
+        return _qcut_numbers_of_distinct_edges(column, quantiles)
+    if duplicates != "raise":
+        raise Unsupported(f"duplicates={duplicates!r} with labels other than False: the number "
+                          "of bins depends on the data")
     bins = len(quantiles) - 1
     if labels is False:
-        ctx.lower("pandas gives float bin numbers (1.0) when a value is missing or outside the "
-                  "edges; Polars gives integers with missing values", 0.9)
         steps: list[Any] = list(range(bins))
     elif isinstance(labels, (list, tuple)) and all(isinstance(x, str) for x in labels):
         if len(labels) != bins:
@@ -784,9 +788,27 @@ def qcut(call: PandasCall, ctx: RuleContext) -> Value:
             else code.method("when", test).method("then", step)
     assert code is not None
     if labels is False:
-        return derived_column(column, code.method("cast", emit.atom("pl.Int64")), dtype="int")
+        # pandas gives float bin numbers (1.0) while a value is missing or outside the edges:
+        # the mark writes them as pandas does
+        result = derived_column(column, code.method("cast", emit.atom("pl.Int64")), dtype="int")
+        return replace(result, float_int="qcut() left a value missing")
     code = code.method("cast", emit.pl("Enum", list(labels)))
     return derived_column(column, code, dtype="enum")
+
+
+def _qcut_numbers_of_distinct_edges(column: Column, quantiles: list[float]) -> Value:
+    """pd.qcut(s, q, labels=False, duplicates="drop"): the bin numbers over the distinct
+    edges (pandas_qcut_numbers, written once into the script). pandas keeps each edge once
+    (equal quantiles: ties, few distinct values) and numbers a value by the distinct edges
+    below it (searchsorted, side="left"), a value on the lowest edge being in bin 0; a value
+    below the lowest edge or above the highest (q as a list not from 0 to 1) or missing has
+    none, and with one distinct edge no value has one. The edges are those qcut computes
+    (pandas_quantile, the minimum, the maximum)."""
+    x = column.code
+    code = emit.call(QCUT_NUMBERS_FUNCTION, x, [_edge(x, p) for p in quantiles])
+    result = derived_column(column, code, dtype="int")
+    # pandas gives float bin numbers (1.0) while a value has none: the mark writes them so
+    return replace(result, float_int="qcut() left a value missing")
 
 
 def _edge(x: Code, p: float) -> Code:

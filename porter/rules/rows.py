@@ -6,6 +6,8 @@ from __future__ import annotations
 from dataclasses import replace
 from typing import Any
 
+import libcst as cst
+
 from porter.emit import code as emit
 from porter.emit.code import Code
 from porter.rules.elementwise import keys_of_column_type
@@ -176,6 +178,33 @@ def pandas_order(frame: Frame, column: Code, dtype: str | None, ascending: Any, 
     return frame.code.method("pipe", emit.atom(SORT_FUNCTION), name or column, **options)
 
 
+def sort_keys(call: PandasCall, columns: list[Column], frame: Frame,
+              ctx: RuleContext) -> list[tuple[Code, str | None]] | None:
+    """sort_values' key=: the expression of each key column to sort by, and its type (None
+    without key=).
+
+    pandas calls the key with each column as a Series and sorts by the values it gives back,
+    as it would sort a column of them (pandas' nargsort / lexsort_indexer map the values
+    first): the lambda's body, evaluated with its parameter standing for the column, is that
+    column of values, computed on the rows before the sort. A key that gives anything but a
+    column of the same rows (a filtered Series, a list, another frame's column) is a TODO."""
+    key = call.arg("key", None, None)
+    if key is None or (isinstance(key, Opaque) and key.is_const and key.const is None):
+        return None
+    if not (isinstance(key, Opaque) and isinstance(key.node, cst.Lambda)):
+        raise Unsupported("key= other than a lambda (write the key as a lambda of the column)")
+    from porter.rules.elementwise import series_lambda
+    keyed: list[tuple[Code, str | None]] = []
+    for column in columns:
+        value = series_lambda(key.node, column, ctx)
+        if not isinstance(value, Column) or value.element:
+            raise Unsupported("the key gives no column porter can sort by")
+        # the key's values on the frame's own rows (another frame's rows would be pandas'
+        # alignment by label: bool_expr refuses them)
+        keyed.append((ctx.bool_expr(value, frame), value.dtype))
+    return keyed
+
+
 @rule("frame.sort_values")
 def sort_values(call: PandasCall, ctx: RuleContext) -> Value:
     """df.sort_values(by, ascending, na_position) -> .sort(..., nulls_last=True, maintain_order=True).
@@ -183,19 +212,29 @@ def sort_values(call: PandasCall, ctx: RuleContext) -> Value:
     Handles: missing values last (also when descending); a list for `ascending`; several
     keys keep tied rows in order (pandas' lexsort is stable); one key of numbers, True/False
     or dates orders tied rows as pandas' unstable quicksort does (pandas_sort_values), one text
-    key is sorted stably as pandas 3 sorts it.
-    Caveats: key= callables are TODOs; one category key or kind="heapsort" keep the stable
-    order (0.9).
+    key is sorted stably as pandas 3 sorts it. key=lambda s: <expression of s> sorts by the
+    lambda's expression of each key column (pandas sorts by what the key gives for each
+    column, in the same order as a column of those values would be sorted).
+    Caveats: a key= other than a lambda porter reads as an expression of its column is a
+    TODO; one category key or kind="heapsort" keep the stable order (0.9).
     """
     frame = call.receiver
     assert isinstance(frame, Frame)
-    ctx.reject_unknown(call, "by", "ascending", "na_position", "kind", "ignore_index", positional=1)
+    ctx.reject_unknown(call, "by", "ascending", "na_position", "kind", "ignore_index", "key",
+                       positional=1)
     by = call.const("by", 0)
     by = column_names(by, "by")
     ascending = call.const("ascending", None, True)
     na_position = call.const("na_position", None, "last")
     kind = call.const("kind", None, "quicksort")
-    if len(by) == 1:
+    keyed = sort_keys(call, [column_of(frame, name) for name in by], frame, ctx)
+    if keyed is not None:
+        if len(by) == 1:
+            code = pandas_order(frame, keyed[0][0], keyed[0][1], ascending, na_position, kind, ctx)
+        else:
+            code = frame.code.method("sort", *(c for c, _ in keyed),
+                                     **sort_args(by, ascending, na_position))
+    elif len(by) == 1:
         code = pandas_order(frame, emit.col(by[0]), frame.dtype(by[0]), ascending, na_position,
                             kind, ctx, name=emit.names_arg(by))
     else:
@@ -211,10 +250,12 @@ def series_sort_values(call: PandasCall, ctx: RuleContext) -> Value:
     frame.sort_values by one column)."""
     column = call.receiver
     assert isinstance(column, Column)
-    ctx.reject_unknown(call, "ascending", "na_position", "kind", "ignore_index")
+    ctx.reject_unknown(call, "ascending", "na_position", "kind", "ignore_index", "key")
     column = values_fixed(column)  # a running sum keeps the values of the rows in their order
     frame = column.frame
-    code = pandas_order(frame, column.code, column.dtype, call.const("ascending", None, True),
+    keyed = sort_keys(call, [column], frame, ctx)
+    by, dtype = keyed[0] if keyed is not None else (column.code, column.dtype)
+    code = pandas_order(frame, by, dtype, call.const("ascending", None, True),
                         call.const("na_position", None, "last"),
                         call.const("kind", None, "quicksort"), ctx)
     sorted_frame = derive(frame, code, same_rows=False)

@@ -1671,7 +1671,7 @@ def series_explode(call: PandasCall, ctx: RuleContext) -> Value:
 # itself, Polars' rename too), with the number of arguments each takes
 NAME_METHODS = {"strip": (0, 1), "lstrip": (0, 1), "rstrip": (0, 1), "lower": (0, 0),
                 "upper": (0, 0), "casefold": (0, 0), "replace": (2, 3), "removeprefix": (1, 1),
-                "removesuffix": (1, 1)}
+                "removesuffix": (1, 1), "title": (0, 0), "capitalize": (0, 0)}
 # pandas' Index.str methods that give what the Python method of that name gives on a name
 # (lower and upper only on ASCII names: pyarrow's lower-cases "İ" to "i", upper-cases "ß" to
 # "ẞ", Python's to "i̇" and "SS")
@@ -1776,9 +1776,15 @@ def rename_function(frame: Frame, function: Value, ctx: RuleContext) -> dict[str
     """df.rename(columns=lambda c: c.strip().lower()): the new names computed now when porter
     knows the columns (a dict for frame.rename), else LazyFrame.rename(<the lambda>)."""
     ops = lambda_name_ops(function.node) if isinstance(function, Opaque) else None
+    node = function.node if isinstance(function, Opaque) else None
+    if ops is None and isinstance(node, cst.Attribute) and isinstance(node.value, cst.Name) \
+            and node.value.value == "str" and NAME_METHODS.get(node.attr.value, (1,))[0] == 0:
+        # columns=str.lower: Python's method called on each name, as lambda c: c.lower()
+        ops = ((node.attr.value, ()),)
     if ops is None:
         raise Unsupported("a rename function porter cannot read (only a lambda calling string "
-                          "methods on the name)")
+                          "methods on the name, or str.lower / str.upper / str.strip / "
+                          "str.title ...)")
     data = known_data_columns(frame)
     if data is not None:
         return {c: new for c in data if (new := apply_name_ops(c, ops)) != c}

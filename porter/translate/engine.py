@@ -1531,8 +1531,9 @@ class _Walker:
         value = evaluator.eval(call)
         if isinstance(receiver_node, cst.Name) and isinstance(value, (Frame, PandasValue, Indexed)):
             return self.bind(receiver_node.value, value, env, indent)
-        if isinstance(receiver_node, cst.Subscript) and isinstance(value, Column):
-            # pandas 3 (copy-on-write): the method changes a copy of the column, never the frame
+        if isinstance(receiver_node, (cst.Subscript, cst.Attribute)) and isinstance(value, Column):
+            # pandas 3 (copy-on-write): the method changes a copy of the column, never the
+            # frame (df["x"] and df.x alike)
             line, end_line = self.services.position(expr)
             meant = " ".join(f"{self.services.code_for(receiver_node)} = "
                              f"{cst.Module([]).code_for_node(call)}".split())
@@ -1832,6 +1833,10 @@ class _Walker:
         if not isinstance(frame, Frame):
             return None
         value = evaluator.eval(value_node)
+        if key == "frame.set_columns" and isinstance(value, Opaque) and value.node is None \
+                and isinstance(value_node, cst.ListComp):
+            # the rule reads the comprehension's string methods (new names computed now)
+            value = replace(value, node=value_node)
         call = PandasCall(frame, target.attr.value, (value,), node=target)
         result = evaluator.dispatch(key, call, target)
         if result is frame:
