@@ -84,6 +84,78 @@ def _names_a_loop_variable(call: PandasCall, ctx: RuleContext) -> bool:
     return bool(used & targets)
 
 
+def _files_of_a_loop(call: PandasCall, ctx: RuleContext) -> tuple[str, ...] | str | None:
+    """The files a read whose path is a loop's or a comprehension's variable may open, listed
+    in the --data folder (porter/analysis/globbed_files.py); why not, or None without --data."""
+    lister = getattr(ctx.schema_lookup, "listing", None)
+    module = ctx.python_module
+    node = call.first_node("filepath_or_buffer") if "filepath_or_buffer" in call.kwargs \
+        or call.args else None
+    if lister is None or module is None or node is None:
+        return None
+    from porter.analysis.globbed_files import listed_files
+    try:
+        path = ast.parse(cst.Module([]).code_for_node(node).strip(), mode="eval").body
+    except SyntaxError:
+        return "the path read is written in a way porter does not evaluate"
+    files = listed_files(module, path, lister)
+    if isinstance(files, tuple):
+        if any(is_url(f) or compression_of(f) in NOT_DECOMPRESSED for f in files):
+            return "a file listed is compressed in a way Polars' scans do not read, or a URL"
+    return files
+
+
+def _with_source(call: PandasCall, source: Value) -> PandasCall:
+    if "filepath_or_buffer" in call.kwargs:
+        return replace(call, kwargs={**call.kwargs, "filepath_or_buffer": source})
+    return replace(call, args=(source, *call.args[1:]))
+
+
+def _check_globbed(files: tuple[str, ...], reader: str, options: dict[str, Any],
+                   ctx: RuleContext) -> None:
+    """Every file a loop lists must read as the same table: the same columns, in the same
+    order, with the same pandas dtypes (and the same reading details porter looks at).
+    Otherwise the read is a TODO naming the first file that differs and how."""
+    from porter.analysis.schema import FileSchema
+    found = [ctx.input_schema(reader, f, options) for f in files]
+    for file, schema in zip(files, found):
+        if not isinstance(schema, FileSchema):
+            raise ctx.todo(f"the loop reads {file}, whose schema porter could not read under "
+                           "--data; the read stays pandas'")
+    first_file, first = files[0], found[0]
+    for file, schema in zip(files[1:], found[1:]):
+        assert isinstance(schema, FileSchema) and isinstance(first, FileSchema)
+        if schema.no_rows != first.no_rows:
+            header_only = file if schema.no_rows else first_file
+            raise ctx.todo(f"the loop reads {header_only}, a file of a header only (pandas "
+                           "reads its columns as object, where the other files have typed "
+                           "columns, and pd.concat then keeps object columns); the read stays "
+                           "pandas'")
+        if list(schema) != list(first):
+            raise ctx.todo(f"the files the loop reads have other columns ({first_file}: "
+                           f"{', '.join(first)}; {file}: {', '.join(schema)}): pandas reads "
+                           "each with its own; the read stays pandas'")
+        differ = [c for c in first if first[c] != schema[c]
+                  or (first.polars or {}).get(c) != (schema.polars or {}).get(c)]
+        if differ:
+            column = differ[0]
+            raise ctx.todo(f"the files the loop reads give column {column!r} other types "
+                           f"({first_file}: {_pandas_kind(first, column)}, {file}: "
+                           f"{_pandas_kind(schema, column)}; an all-blank column is float to "
+                           "pandas): the read stays pandas'")
+        if schema.polars != first.polars or schema.padded != first.padded \
+                or schema.line_ends != first.line_ends \
+                or schema.pandas_nullable != first.pandas_nullable:
+            raise ctx.todo(f"the files the loop reads differ in how pandas reads them "
+                           f"({first_file} and {file}: number spellings, line ends or nullable "
+                           "types): the read stays pandas'")
+
+
+def _pandas_kind(schema: Any, column: str) -> str:
+    polars = (schema.polars or {}).get(column)
+    return f"{schema[column]} ({polars})" if polars else str(schema[column])
+
+
 @rule("pd.read_csv")
 def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     """pd.read_csv -> pl.scan_csv; index_col="k" -> the table labelled by column k (as
@@ -169,14 +241,28 @@ def _read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     source = call.arg("filepath_or_buffer", 0)
     check_source(source, ctx)
     _compression(call, source, ctx)
+    globbed: tuple[str, ...] | None = None
     if _paths(source) is None and _names_a_loop_variable(call, ctx):
         # one of many files (a loop's or a comprehension's): Polars infers the types of each
         # file porter never saw, and its inference differs from pandas' (a day's file with an
-        # all-blank column is text to it, float64 to pandas, and the concat then differs)
-        raise ctx.todo("the file read is only known when the script runs (a loop's or a "
-                       "comprehension's variable): pandas reads numbers written \" 5\" or "
-                       "\"+3\", an all-blank column as float and a file of a header only as "
-                       "object columns, where Polars' scan infers text; the read stays pandas'")
+        # all-blank column is text to it, float64 to pandas, and the concat then differs).
+        # With --data, a loop over a listing porter can make there (glob.glob, Path.glob,
+        # os.listdir) names the files: the scan is told the schema they all share
+        listed = _files_of_a_loop(call, ctx)
+        if not isinstance(listed, tuple):
+            raise ctx.todo("the file read is only known when the script runs (a loop's or a "
+                           "comprehension's variable): pandas reads numbers written \" 5\" or "
+                           "\"+3\", an all-blank column as float and a file of a header only as "
+                           "object columns, where Polars' scan infers text; the read stays "
+                           "pandas'" + (f" ({listed})" if listed else
+                                        " (with --data, porter reads the files of a glob.glob, "
+                                        "Path.glob or os.listdir the loop goes over)"))
+        globbed = listed
+        source = replace(source, choices=listed)
+        call = _with_source(call, source)
+        ctx.lower("the files the loop lists when the script runs may be others than --data's: "
+                  "each is read with the types the files listed there share (a value that does "
+                  "not fit fails, loudly)", 0.95)
     if _paths(source) is None:
         ctx.lower("the file is named when the script runs (porter never saw it): Polars infers "
                   "its types over the whole file as pandas does, but reads numbers written "
@@ -398,6 +484,8 @@ def _read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         options["nrows"] = nrows
 
     schema = ctx.input_schema("csv", _paths(source), options)
+    if globbed is not None:
+        _check_globbed(globbed, "csv", options, ctx)
     if schema is None and isinstance(_paths(source), str) and not options.keys() - {"sep"}:
         written = _written_frame(_paths(source), sep or ",", ctx)  # type: ignore[arg-type]
         if written is not None:

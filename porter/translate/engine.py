@@ -298,6 +298,7 @@ class _Walker:
         # str.extract's columns kept in the text's frame under names of their own (see
         # parts_as_columns): the line of the name's last read -> (frame, those columns)
         self.parts_drops: dict[int, tuple[str, tuple[str, ...]]] = {}
+        services.changed_only_afresh = self.changed_only_afresh
         # the names holding such frames of parts: their text's frame, and each label's column
         self.parts_columns: dict[str, tuple[str, dict[object, str]]] = {}
         self._bound: dict[str, list[int]] | None = None  # see bound_lines
@@ -875,6 +876,22 @@ class _Walker:
                                   for n in self.reached_through(aliases)):
             return frames
         return [n for n in frames if self.changed_since(n, after, own=True)]
+
+    def changed_only_afresh(self, name: str) -> bool:
+        """Whether every change in place of `name`'s object comes before the statement at hand
+        and, in the loops and functions around it, after the name is bound afresh there
+        (`part = pd.read_csv(path); part["c"] = ...; frames.append(part)`): what the statement
+        holds of it then is never changed again (each run changes the next frame)."""
+        here = self.services.statement_lines[0]
+        span = self.spans[0] if self.spans else None
+        bound = self.bound_lines().get(name, ())
+        for line in self.services.changed_in_place.get(name, ()):
+            if line >= here:
+                return False
+            if span is not None and span[0] <= line <= span[1] \
+                    and not any(span[0] <= b < line for b in bound):
+                return False
+        return True
 
     def changed_through(self, aliases: list[str], after: int) -> list[str]:
         """The names holding what `aliases` hold that a change in place goes through."""
