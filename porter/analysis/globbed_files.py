@@ -388,7 +388,7 @@ def listed_files(module: ast.Module, path: ast.expr, lister: Lister) -> tuple[st
     static.env = {}
     if not files:
         return "no file of the --data folder is listed by the loop"
-    return tuple(dict.fromkeys(files))
+    return tuple(sorted(set(files)))  # the order is the loop's business, not the schema's
 
 
 def list_in(root: os.PathLike[str] | str, kind: str, where: str, pattern: str | None,

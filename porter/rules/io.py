@@ -84,13 +84,13 @@ def _names_a_loop_variable(call: PandasCall, ctx: RuleContext) -> bool:
     return bool(used & targets)
 
 
-def _files_of_a_loop(call: PandasCall, ctx: RuleContext) -> tuple[str, ...] | str | None:
+def _files_of_a_loop(call: PandasCall, ctx: RuleContext,
+                     keyword: str = "filepath_or_buffer") -> tuple[str, ...] | str | None:
     """The files a read whose path is a loop's or a comprehension's variable may open, listed
     in the --data folder (porter/analysis/globbed_files.py); why not, or None without --data."""
     lister = getattr(ctx.schema_lookup, "listing", None)
     module = ctx.python_module
-    node = call.first_node("filepath_or_buffer") if "filepath_or_buffer" in call.kwargs \
-        or call.args else None
+    node = call.first_node(keyword) if keyword in call.kwargs or call.args else None
     if lister is None or module is None or node is None:
         return None
     from porter.analysis.globbed_files import listed_files
@@ -111,44 +111,74 @@ def _with_source(call: PandasCall, source: Value) -> PandasCall:
     return replace(call, args=(source, *call.args[1:]))
 
 
+_LOOP_READ = ("the file read is only known when the script runs (a loop's or a comprehension's "
+              "variable), and ")
+# what the schema reader notes of a file beyond its column types, which the read is written
+# for (FileSchema): files that differ in one of them are not read alike
+_READ_DETAILS = ("padded", "line_ends", "pandas_nullable", "implicit_index",
+                 "wide_ints", "typed_categories", "trailing_comments", "thousands_unsure",
+                 "spaced_quotes", "words_unsure", "bad_lines_unsure", "bool_texts")
+
+
 def _check_globbed(files: tuple[str, ...], reader: str, options: dict[str, Any],
-                   ctx: RuleContext) -> None:
+                   ctx: RuleContext) -> Any:
     """Every file a loop lists must read as the same table: the same columns, in the same
-    order, with the same pandas dtypes (and the same reading details porter looks at).
-    Otherwise the read is a TODO naming the first file that differs and how."""
+    order, with the same pandas dtypes and the same reading details porter looks at (see
+    _READ_DETAILS). Otherwise the read is a TODO naming the first file that differs and how.
+    Returns the schema the read is written for: the first file's, with blank lines and rows
+    of empty fields noted where any file has them, and each file's first dates."""
     from porter.analysis.schema import FileSchema
     found = [ctx.input_schema(reader, f, options) for f in files]
     for file, schema in zip(files, found):
         if not isinstance(schema, FileSchema):
-            raise ctx.todo(f"the loop reads {file}, whose schema porter could not read under "
+            raise ctx.todo(_LOOP_READ + f"porter could not read the schema of {file} under "
                            "--data; the read stays pandas'")
     first_file, first = files[0], found[0]
+    assert isinstance(first, FileSchema)
     for file, schema in zip(files[1:], found[1:]):
-        assert isinstance(schema, FileSchema) and isinstance(first, FileSchema)
+        assert isinstance(schema, FileSchema)
+        reason = None
         if schema.no_rows != first.no_rows:
             header_only = file if schema.no_rows else first_file
-            raise ctx.todo(f"the loop reads {header_only}, a file of a header only (pandas "
-                           "reads its columns as object, where the other files have typed "
-                           "columns, and pd.concat then keeps object columns); the read stays "
-                           "pandas'")
-        if list(schema) != list(first):
-            raise ctx.todo(f"the files the loop reads have other columns ({first_file}: "
-                           f"{', '.join(first)}; {file}: {', '.join(schema)}): pandas reads "
-                           "each with its own; the read stays pandas'")
-        differ = [c for c in first if first[c] != schema[c]
-                  or (first.polars or {}).get(c) != (schema.polars or {}).get(c)]
-        if differ:
+            reason = (f"{header_only} holds a header only (pandas reads its columns as object, "
+                      "where the other files give typed columns, and pd.concat then makes "
+                      "object columns)")
+        elif list(schema) != list(first):
+            reason = (f"the files listed have other columns ({first_file}: {', '.join(first)}; "
+                      f"{file}: {', '.join(schema)}): pandas reads each with its own")
+        elif differ := [c for c in first if first[c] != schema[c]
+                        or (first.polars or {}).get(c) != (schema.polars or {}).get(c)]:
             column = differ[0]
-            raise ctx.todo(f"the files the loop reads give column {column!r} other types "
-                           f"({first_file}: {_pandas_kind(first, column)}, {file}: "
-                           f"{_pandas_kind(schema, column)}; an all-blank column is float to "
-                           "pandas): the read stays pandas'")
-        if schema.polars != first.polars or schema.padded != first.padded \
-                or schema.line_ends != first.line_ends \
-                or schema.pandas_nullable != first.pandas_nullable:
-            raise ctx.todo(f"the files the loop reads differ in how pandas reads them "
-                           f"({first_file} and {file}: number spellings, line ends or nullable "
-                           "types): the read stays pandas'")
+            reason = (f"the files listed give column {column!r} other types ({first_file}: "
+                      f"{_pandas_kind(first, column)}, {file}: {_pandas_kind(schema, column)}; "
+                      "an all-blank column is float to pandas, whole numbers with a blank too)")
+        elif "na_values" in options and schema.missing_ints != first.missing_ints:
+            # whole numbers typed float by a blank: pandas matches them with na_values' numbers
+            # otherwise than it matches floats (see _numbers_missing)
+            reason = (f"{first_file} and {file} differ in which columns hold whole numbers "
+                      "with a blank, which na_values= reads otherwise")
+        elif schema.polars != first.polars or any(
+                getattr(schema, d) != getattr(first, d) for d in _READ_DETAILS):
+            details = [d for d in _READ_DETAILS if getattr(schema, d) != getattr(first, d)]
+            reason = (f"{first_file} and {file} differ in how pandas reads them "
+                      f"({', '.join(details) or 'column types'})")
+        if reason is not None:
+            raise ctx.todo(_LOOP_READ + reason + "; the read stays pandas'")
+    combined = FileSchema(first)
+    combined.__dict__.update(first.__dict__)
+    looked = [s.blank_lines for s in found]  # type: ignore[union-attr]
+    combined.blank_lines = None if None in looked else any(looked)
+    combined.empty_rows = any(s.empty_rows for s in found)  # type: ignore[union-attr]
+    combined.missing_ints = frozenset().union(*(s.missing_ints for s in found))  # type: ignore[union-attr]
+    # parse_dates: pandas guesses each file's format from its own first value
+    # (_parsed_dates), and keeps a file's column as text where a value does not fit it
+    combined.first_texts_each = [s.first_texts or {} for s in found]  # type: ignore[union-attr]
+    heads: dict[str, list[str]] = {}
+    for s in found:
+        for column, values in (s.text_heads or {}).items():  # type: ignore[union-attr]
+            heads.setdefault(column, []).extend(values)
+    combined.text_heads = heads or first.text_heads
+    return combined
 
 
 def _pandas_kind(schema: Any, column: str) -> str:
@@ -485,7 +515,7 @@ def _read_csv(call: PandasCall, ctx: RuleContext) -> Value:
 
     schema = ctx.input_schema("csv", _paths(source), options)
     if globbed is not None:
-        _check_globbed(globbed, "csv", options, ctx)
+        schema = _check_globbed(globbed, "csv", options, ctx)
     if schema is None and isinstance(_paths(source), str) and not options.keys() - {"sep"}:
         written = _written_frame(_paths(source), sep or ",", ctx)  # type: ignore[arg-type]
         if written is not None:
@@ -1407,6 +1437,18 @@ def read_parquet(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.reject_unknown(call, "path", "columns", "engine", positional=1)
     source = call.arg("path", 0)
     path = _paths(source)
+    if path is None and isinstance(source, Opaque) and _names_a_loop_variable(call, ctx):
+        # a loop's or a comprehension's variable over files porter lists in --data: the scan
+        # knows their columns when every file has the same ones, of the same types (else it
+        # reads each file's own, as before)
+        listed = _files_of_a_loop(call, ctx, "path")
+        if isinstance(listed, tuple):
+            try:
+                _check_globbed(listed, "parquet", {}, ctx)
+            except Unsupported:
+                pass
+            else:
+                path = listed
     schema = ctx.input_schema("parquet", path, {})
     pandas = _pandas_name(ctx)
     written = isinstance(path, str) and _pandas_may_write_parquet(ctx.python_module, path)

@@ -1292,6 +1292,8 @@ class Evaluator:
             if isinstance(function, Opaque) and isinstance(function.node, cst.Name):
                 self.services.applied_functions.setdefault(function.node.value, set()).add(id(node))
                 self.services.applied_kinds.setdefault(function.node.value, set()).add(_APPLIES[key])
+        if ctx.args_evaluated_again:
+            call = replace(call, args=(), kwargs={})
         return result.with_sites(*_child_sites(call, result), site)
 
     def evaluate_with(self, node: cst.BaseExpression, bindings: dict[str, Value]) -> Value:
