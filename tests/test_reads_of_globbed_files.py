@@ -308,3 +308,76 @@ def test_dates_written_otherwise_in_another_file(second, tmp_path, monkeypatch) 
                            ignore_index=True)
         """
     _ported(source, tmp_path, monkeypatch, files)
+
+
+FRAME = """\
+import numpy as np
+import pandas as pd
+df = pd.DataFrame({
+    "boat": ["Ålesund", "Kvarøy", None, "Kvarøy", "Ålesund", "Tind"],
+    "kg": [1.5, np.nan, 4.0, 4.0, 0.5, 2.25],
+    "month": [1, 2, 2, 3, 1, 3],
+})
+"""
+
+
+@pytest.mark.parametrize("body", [
+    'result = pd.concat([df[df["month"] == m] for m in [3, 1, 9]], ignore_index=True)',
+    'result = pd.concat([df[df["kg"] > x].assign(cut=1) for x in [0.5, 2.0] if x > 0],\n'
+    '                   ignore_index=True)',
+])
+def test_a_comprehension_of_frames_is_stacked_in_polars(body) -> None:
+    result = differential(FRAME + body + "\n")
+    assert "pl.concat(\n    [" in result.converted_text or "pl.concat([" in result.converted_text
+    assert "TODO" not in result.converted_text
+
+
+@pytest.mark.parametrize("body", [
+    # the columns differ from one piece to the next: "kg" and "month" missing by turns, which
+    # pandas makes float64 (month 1.0), where Polars would keep Int64
+    'result = pd.concat([df[["boat", c]] for c in ["kg", "month"]], ignore_index=True)',
+    # without ignore_index pandas keeps each piece's row labels
+    'stacked = pd.concat([df[df["month"] == m] for m in [3, 1]])\nresult = stacked.index.tolist()',
+])
+def test_a_comprehension_porter_cannot_read_stays_pandas(body) -> None:
+    result = differential(FRAME + body + "\n")
+    assert "pl.concat(" not in result.converted_text
+
+
+def test_a_frame_changed_before_it_is_appended_in_each_turn() -> None:
+    # `part` is bound afresh in each turn and changed before the append: the list holds each
+    # turn's frame as it was changed, never changed again
+    result = differential(FRAME + 'parts = []\nfor m in [1, 3]:\n    part = df[df["month"] == m]\n'
+                          '    part["turn"] = m\n    parts.append(part)\n'
+                          'result = pd.concat(parts, ignore_index=True)\n')
+    assert "pl.concat(parts" in result.converted_text and "TODO" not in result.converted_text
+
+
+@pytest.mark.parametrize("body", [
+    # changed in the turn before it is bound again: the change reaches the frame appended
+    'parts = []\npart = df\nfor m in [1, 3]:\n    part["turn"] = m\n'
+    '    part = df[df["month"] == m]\n    parts.append(part)\n'
+    'result = pd.concat(parts, ignore_index=True)',
+    # changed after the append: pandas' list holds that same object
+    'parts = []\nfor m in [1, 3]:\n    part = df[df["month"] == m]\n    parts.append(part)\n'
+    '    part["turn"] = m\nresult = pd.concat(parts, ignore_index=True)',
+])
+def test_a_frame_changed_where_the_list_sees_it_stays_pandas(body) -> None:
+    result = differential(FRAME + body + "\n")
+    assert "pl.concat(parts" not in result.converted_text
+
+
+def test_the_corpus_example_verifies_same(tmp_path) -> None:
+    # the kelp co-op's month files, board registers and price lists (corpus), run both ways by
+    # porter verify in copies of the case folder: every output the same
+    import shutil
+
+    from porter.verify.api import verify
+    case = Path(__file__).parent.parent / "corpus" / "kelp_harvest_month_files"
+    folder = tmp_path / "case"
+    shutil.copytree(case, folder)
+    script = folder / "kelp_harvest_month_files.py"
+    outcome = verify(script, None, folder)
+    statuses = {o.name: o.comparison.status for o in outcome.outputs}
+    assert outcome.verdict == "same", statuses
+    assert {"by_boat.csv", "per_file.csv", "harvest_valued.csv"} <= set(statuses)
