@@ -90,13 +90,19 @@ def test_the_loop_over_a_sorted_glob_ports_whole(tmp_path, monkeypatch) -> None:
     'glob.glob("data/crossings_*.csv")',  # the file system's order: the same list both ways
     'sorted(glob.glob("data/*.csv"), reverse=True)',
     'glob.glob("data/**/*.csv", recursive=True)',
+    'glob.iglob(os.path.join("data", "crossings_*.csv"))',
+    'listed',  # a name bound once to the listing
+    'glob_("data/*.csv")',  # from glob import glob as glob_
 ])
 def test_a_comprehension_over_a_glob_keeps_pandas_order(listing, tmp_path, monkeypatch) -> None:
     # the converted script goes over the same Python list glob.glob gives when it runs, so the
     # rows are stacked in the order pandas stacks them, sorted or not
     source = f"""\
         import glob
+        import os
+        from glob import glob as glob_
         import pandas as pd
+        listed = sorted(glob.glob("data/*.csv"))
         result = pd.concat([pd.read_csv(f) for f in {listing}], ignore_index=True)
         """
     text = _ported(source, tmp_path, monkeypatch)
@@ -149,6 +155,22 @@ def test_a_continue_filter_and_an_f_string_path(tmp_path, monkeypatch) -> None:
         """
     text = _ported(source, tmp_path, monkeypatch, files)
     assert LOOP_TODO not in text
+
+
+def test_a_continue_filter_on_the_path_itself(tmp_path, monkeypatch) -> None:
+    files = {**CROSSINGS, "data/notes.txt": "crossings by month\n"}
+    source = """\
+        import glob
+        import pandas as pd
+        frames = []
+        for path in sorted(glob.glob("data/*")):
+            if not path.endswith(".csv"):
+                continue
+            frames.append(pd.read_csv(path))
+        result = pd.concat(frames, ignore_index=True)
+        """
+    text = _ported(source, tmp_path, monkeypatch, files)
+    assert LOOP_TODO not in text and "pl.concat(frames" in text
 
 
 def test_a_filter_porter_cannot_evaluate_keeps_every_file(tmp_path, monkeypatch) -> None:

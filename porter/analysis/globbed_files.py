@@ -306,7 +306,11 @@ def _listed(names: list[str] | None, what: str) -> list[str]:
 
 
 def _contains(tree: ast.AST, dump: str) -> bool:
-    return any(ast.dump(n) == dump for n in ast.walk(tree) if isinstance(n, ast.expr))
+    """Whether `tree` holds a call given the path read (ast.dump of it) as an argument: the read,
+    not a condition on the path (`if not path.endswith(".csv"): continue`)."""
+    return any(isinstance(n, ast.Call) and any(
+        ast.dump(a) == dump for a in [*n.args, *(k.value for k in n.keywords)])
+        for n in ast.walk(tree))
 
 
 def _guards(loop: ast.AST, owner: ast.AST | None, dump: str) -> list[tuple[ast.expr, bool]]:
