@@ -286,6 +286,20 @@ def test_a_listing_porter_cannot_make_keeps_the_todo(tmp_path, monkeypatch) -> N
     assert LOOP_TODO in text
 
 
+def test_a_listing_the_script_changes_keeps_the_todo(tmp_path, monkeypatch) -> None:
+    # the list gets a file porter did not list (with other columns): the read stays pandas'
+    files = {**CROSSINGS, "extra/crew.csv": "ferry,crew\nTern,3\n"}
+    source = """\
+        import glob
+        import pandas as pd
+        listed = sorted(glob.glob("data/*.csv"))
+        listed.append("extra/crew.csv")
+        result = pd.concat([pd.read_csv(f) for f in listed], ignore_index=True)
+        """
+    text = _ported(source, tmp_path, monkeypatch, files)
+    assert LOOP_TODO in text
+
+
 def test_parquet_files_of_one_schema(tmp_path, monkeypatch) -> None:
     import pandas as pd
     _folder(tmp_path, {})

@@ -108,6 +108,7 @@ class _Static:
     """Evaluates the few expressions a listing, a path or a filter is written with."""
 
     def __init__(self, module: ast.Module) -> None:
+        self.module = module
         self.aliases = _aliases(module)
         self.stores = _stores(module)
         self.env: dict[str, Any] = {}
@@ -243,6 +244,32 @@ class _Static:
         raise _Unknown("call")
 
 
+def _changed_list(module: ast.Module, name: str) -> bool:
+    """Whether the script may change the list a name holds (files.append(...), files[0] = ...,
+    del files[0], or gives it to a call that might): only sort / reverse / copy / count /
+    index keep its files, and sorted(files), len(files) and a loop over it read them."""
+    parents = {id(child): node for node in ast.walk(module) for child in ast.iter_child_nodes(node)}
+    for node in ast.walk(module):
+        if not (isinstance(node, ast.Name) and node.id == name and isinstance(node.ctx, ast.Load)):
+            continue
+        parent = parents.get(id(node))
+        if isinstance(parent, ast.Attribute):
+            if parent.attr not in ("sort", "reverse", "copy", "count", "index"):
+                return True
+        elif isinstance(parent, ast.Subscript):
+            if not isinstance(parent.ctx, ast.Load):
+                return True
+        elif isinstance(parent, ast.Call):
+            if not (isinstance(parent.func, ast.Name)
+                    and parent.func.id in ("sorted", "len", "list", "tuple", "set", "reversed",
+                                           "print", "enumerate")):
+                return True
+        elif not isinstance(parent, (ast.For, ast.comprehension, ast.Compare, ast.If,
+                                     ast.BoolOp, ast.UnaryOp, ast.Expr)):
+            return True  # bound to another name, stored somewhere...: not followed
+    return False
+
+
 def _unwrapped(node: ast.expr, static: _Static) -> ast.expr:
     """sorted(x) / list(x) / tuple(x) / reversed(x) / set(x) hold the files x lists."""
     while isinstance(node, ast.Call) and isinstance(node.func, ast.Name) \
@@ -261,7 +288,8 @@ def _listing(node: ast.expr, static: _Static, lister: Lister) -> list[Any]:
     if isinstance(node, ast.Name) and node.id not in static.env:
         owners = static.stores.get(node.id, [])
         if len(owners) == 1 and isinstance(owners[0], ast.Assign) \
-                and len(owners[0].targets) == 1 and isinstance(owners[0].targets[0], ast.Name):
+                and len(owners[0].targets) == 1 and isinstance(owners[0].targets[0], ast.Name) \
+                and not _changed_list(static.module, node.id):
             return _listing(owners[0].value, static, lister)  # files = sorted(glob.glob(...))
         raise _Unknown(f"the loop goes over `{node.id}`, which porter cannot list")
     if not isinstance(node, ast.Call) or any(isinstance(a, ast.Starred) for a in node.args):
