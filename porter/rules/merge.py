@@ -1193,6 +1193,14 @@ def _listed_frames(call: PandasCall, ctx: RuleContext) -> tuple[list[Frame], Cod
     return frames, None
 
 
+class _OneLine(cst.CSTTransformer):
+    """The clause as one line (the layout breaks the code porter writes where it is long)."""
+
+    def leave_ParenthesizedWhitespace(self, original: cst.ParenthesizedWhitespace,
+                                      updated: cst.ParenthesizedWhitespace) -> cst.SimpleWhitespace:
+        return cst.SimpleWhitespace(" ")
+
+
 def _comprehended_frames(node: cst.ListComp | cst.GeneratorExp, call: PandasCall,
                          ctx: RuleContext) -> tuple[list[Frame], Code]:
     """pd.concat([pd.read_csv(f) for f in files], ignore_index=True): one `for` clause whose
@@ -1225,7 +1233,8 @@ def _comprehended_frames(node: cst.ListComp | cst.GeneratorExp, call: PandasCall
         # float, and text beside numbers an object column
         raise ctx.todo("a comprehension of frames whose columns or their types porter does "
                        "not know: they may differ from one piece to the next")
-    listed = cst.ListComp(elt=cst.parse_expression(value.code.text), for_in=clause)
+    listed = cst.ListComp(elt=cst.parse_expression(value.code.text),
+                          for_in=clause.visit(_OneLine()))  # type: ignore[arg-type]
     ctx.args_evaluated_again = True
     return [value], emit.atom(cst.Module([]).code_for_node(listed))
 
