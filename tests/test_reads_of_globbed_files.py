@@ -394,6 +394,15 @@ def test_a_frame_changed_before_it_is_appended_in_each_turn() -> None:
     'parts = []\npart = df\nfor m in [1, 3]:\n    part["turn"] = m\n'
     '    part = df[df["month"] == m]\n    parts.append(part)\n'
     'result = pd.concat(parts, ignore_index=True)',
+    # bound in the outer loop, changed and appended in the inner one: the list holds one
+    # object twice, which the second turn changes again
+    'parts = []\nfor m in [1, 3]:\n    part = df[df["month"] == m]\n    for t in ["a", "b"]:\n'
+    '        part["turn"] = t\n        parts.append(part)\n'
+    'result = pd.concat(parts, ignore_index=True)',
+    # bound under a condition only: a turn without it changes the frame appended before
+    'parts = []\npart = df[df["month"] == 2]\nfor m in [1, 3]:\n    if m > 2:\n'
+    '        part = df[df["month"] == m]\n    part["turn"] = m\n    parts.append(part)\n'
+    'result = pd.concat(parts, ignore_index=True)',
     # changed after the append: pandas' list holds that same object
     'parts = []\nfor m in [1, 3]:\n    part = df[df["month"] == m]\n    parts.append(part)\n'
     '    part["turn"] = m\nresult = pd.concat(parts, ignore_index=True)',

@@ -883,15 +883,29 @@ class _Walker:
         (`part = pd.read_csv(path); part["c"] = ...; frames.append(part)`): what the statement
         holds of it then is never changed again (each run changes the next frame)."""
         here = self.services.statement_lines[0]
-        span = self.spans[0] if self.spans else None
-        bound = self.bound_lines().get(name, ())
         for line in self.services.changed_in_place.get(name, ()):
             if line >= here:
                 return False
-            if span is not None and span[0] <= line <= span[1] \
-                    and not any(span[0] <= b < line for b in bound):
+            # each loop (or function) around both must bind the name afresh, in its own body
+            # and not under a condition, before the change: else a later turn changes the
+            # frame appended in an earlier one
+            if not self.bound_afresh_before(name, line):
                 return False
         return True
+
+    def fresh_lines(self, span: tuple[int, int], name: str) -> list[int]:
+        """The lines where the loop or function starting at span[0] binds `name` by a
+        statement of its own body (not nested in an `if`, a `try` or another loop)."""
+        module = self.services.python_module
+        if module is None:
+            return []
+        for node in ast.walk(module):
+            if isinstance(node, (ast.For, ast.AsyncFor, ast.While, ast.FunctionDef,
+                                 ast.AsyncFunctionDef)) and node.lineno == span[0]:
+                return [stmt.lineno for stmt in node.body
+                        if isinstance(stmt, ast.Assign) and any(
+                            isinstance(t, ast.Name) and t.id == name for t in stmt.targets)]
+        return []
 
     def changed_through(self, aliases: list[str], after: int) -> list[str]:
         """The names holding what `aliases` hold that a change in place goes through."""
@@ -907,9 +921,16 @@ class _Walker:
             if line > after:
                 return True
             if span is not None and span[0] <= line <= span[1] and not (
-                    own and any(span[0] <= b <= span[1] for b in self.bound_lines().get(name, ()))):
+                    own and self.bound_afresh_before(name, line)):
                 return True
         return False
+
+    def bound_afresh_before(self, name: str, line: int) -> bool:
+        """Whether each loop (or function) around the statement at hand that holds the change
+        at `line` binds `name` afresh before it, by a statement of its own body: the change is
+        then to that turn's new frame (see fresh_lines)."""
+        return all(any(span[0] <= b < line for b in self.fresh_lines(span, name))
+                   for span in self.spans if span[0] <= line <= span[1])
 
     def bound_lines(self) -> dict[str, list[int]]:
         """Where each name is bound (assigned, a loop's or a `with`'s target)."""
