@@ -35,6 +35,7 @@ for m in ["M01", "M02"]:
     part = d[d["member"] == m][["member", "v"]].copy()
     part["tag"] = m
     pieces.append(part)
+counted = len(pieces)  # the list read otherwise than by concat: its frames go to pandas
 both = pd.concat(pieces, ignore_index=True)
 """
 

@@ -161,6 +161,13 @@ class SchemaReader:
             self.cache[key] = self._read(reader, path, options)
         return self.cache[key]
 
+    def listing(self, kind: str, where: str, pattern: str | None,
+                recursive: bool) -> list[str] | None:
+        """What a listing call of the script (glob.glob, os.listdir, Path.glob...) gives run
+        from the data folder (porter/analysis/globbed_files.py)."""
+        from porter.analysis.globbed_files import list_in
+        return list_in(self.root, kind, where, pattern, recursive)
+
     def _read(self, reader: str, path: str, options: dict[str, Any]) -> dict[str, str] | None:
         if any(c in path for c in "*?[") and not is_url(path):
             return self._read_glob(reader, path, options)

@@ -84,6 +84,108 @@ def _names_a_loop_variable(call: PandasCall, ctx: RuleContext) -> bool:
     return bool(used & targets)
 
 
+def _files_of_a_loop(call: PandasCall, ctx: RuleContext,
+                     keyword: str = "filepath_or_buffer") -> tuple[str, ...] | str | None:
+    """The files a read whose path is a loop's or a comprehension's variable may open, listed
+    in the --data folder (porter/analysis/globbed_files.py); why not, or None without --data."""
+    lister = getattr(ctx.schema_lookup, "listing", None)
+    module = ctx.python_module
+    node = call.first_node(keyword) if keyword in call.kwargs or call.args else None
+    if lister is None or module is None or node is None:
+        return None
+    from porter.analysis.globbed_files import listed_files
+    try:
+        path = ast.parse(cst.Module([]).code_for_node(node).strip(), mode="eval").body
+    except SyntaxError:
+        return "the path read is written in a way porter does not evaluate"
+    files = listed_files(module, path, lister)
+    if isinstance(files, tuple):
+        if any(is_url(f) or compression_of(f) in NOT_DECOMPRESSED for f in files):
+            return "a file listed is compressed in a way Polars' scans do not read, or a URL"
+    return files
+
+
+def _with_source(call: PandasCall, source: Value) -> PandasCall:
+    if "filepath_or_buffer" in call.kwargs:
+        return replace(call, kwargs={**call.kwargs, "filepath_or_buffer": source})
+    return replace(call, args=(source, *call.args[1:]))
+
+
+_LOOP_READ = ("the file read is only known when the script runs (a loop's or a comprehension's "
+              "variable), and ")
+# what the schema reader notes of a file beyond its column types, which the read is written
+# for (FileSchema): files that differ in one of them are not read alike
+_READ_DETAILS = ("padded", "line_ends", "pandas_nullable", "implicit_index",
+                 "wide_ints", "typed_categories", "trailing_comments", "thousands_unsure",
+                 "spaced_quotes", "words_unsure", "bad_lines_unsure", "bool_texts")
+
+
+def _check_globbed(files: tuple[str, ...], reader: str, options: dict[str, Any],
+                   ctx: RuleContext) -> Any:
+    """Every file a loop lists must read as the same table: the same columns, in the same
+    order, with the same pandas dtypes and the same reading details porter looks at (see
+    _READ_DETAILS). Otherwise the read is a TODO naming the first file that differs and how.
+    Returns the schema the read is written for: the first file's, with blank lines and rows
+    of empty fields noted where any file has them, and each file's first dates."""
+    from porter.analysis.schema import FileSchema
+    found = [ctx.input_schema(reader, f, options) for f in files]
+    for file, schema in zip(files, found):
+        if not isinstance(schema, FileSchema):
+            raise ctx.todo(_LOOP_READ + f"porter could not read the schema of {file} under "
+                           "--data; the read stays pandas'")
+    first_file, first = files[0], found[0]
+    assert isinstance(first, FileSchema)
+    for file, schema in zip(files[1:], found[1:]):
+        assert isinstance(schema, FileSchema)
+        reason = None
+        if schema.no_rows != first.no_rows:
+            header_only = file if schema.no_rows else first_file
+            reason = (f"{header_only} holds a header only (pandas reads its columns as object, "
+                      "where the other files give typed columns, and pd.concat then makes "
+                      "object columns)")
+        elif list(schema) != list(first):
+            reason = (f"the files listed have other columns ({first_file}: {', '.join(first)}; "
+                      f"{file}: {', '.join(schema)}): pandas reads each with its own")
+        elif differ := [c for c in first if first[c] != schema[c]
+                        or (first.polars or {}).get(c) != (schema.polars or {}).get(c)]:
+            column = differ[0]
+            reason = (f"the files listed give column {column!r} other types ({first_file}: "
+                      f"{_pandas_kind(first, column)}, {file}: {_pandas_kind(schema, column)}; "
+                      "an all-blank column is float to pandas, whole numbers with a blank too)")
+        elif "na_values" in options and schema.missing_ints != first.missing_ints:
+            # whole numbers typed float by a blank: pandas matches them with na_values' numbers
+            # otherwise than it matches floats (see _numbers_missing)
+            reason = (f"{first_file} and {file} differ in which columns hold whole numbers "
+                      "with a blank, which na_values= reads otherwise")
+        elif schema.polars != first.polars or any(
+                getattr(schema, d) != getattr(first, d) for d in _READ_DETAILS):
+            details = [d for d in _READ_DETAILS if getattr(schema, d) != getattr(first, d)]
+            reason = (f"{first_file} and {file} differ in how pandas reads them "
+                      f"({', '.join(details) or 'column types'})")
+        if reason is not None:
+            raise ctx.todo(_LOOP_READ + reason + "; the read stays pandas'")
+    combined = FileSchema(first)
+    combined.__dict__.update(first.__dict__)
+    looked = [s.blank_lines for s in found]  # type: ignore[union-attr]
+    combined.blank_lines = None if None in looked else any(looked)
+    combined.empty_rows = any(s.empty_rows for s in found)  # type: ignore[union-attr]
+    combined.missing_ints = frozenset().union(*(s.missing_ints for s in found))  # type: ignore[union-attr]
+    # parse_dates: pandas guesses each file's format from its own first value
+    # (_parsed_dates), and keeps a file's column as text where a value does not fit it
+    combined.first_texts_each = [s.first_texts or {} for s in found]  # type: ignore[union-attr]
+    heads: dict[str, list[str]] = {}
+    for s in found:
+        for column, values in (s.text_heads or {}).items():  # type: ignore[union-attr]
+            heads.setdefault(column, []).extend(values)
+    combined.text_heads = heads or first.text_heads
+    return combined
+
+
+def _pandas_kind(schema: Any, column: str) -> str:
+    polars = (schema.polars or {}).get(column)
+    return f"{schema[column]} ({polars})" if polars else str(schema[column])
+
+
 @rule("pd.read_csv")
 def read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     """pd.read_csv -> pl.scan_csv; index_col="k" -> the table labelled by column k (as
@@ -169,14 +271,28 @@ def _read_csv(call: PandasCall, ctx: RuleContext) -> Value:
     source = call.arg("filepath_or_buffer", 0)
     check_source(source, ctx)
     _compression(call, source, ctx)
+    globbed: tuple[str, ...] | None = None
     if _paths(source) is None and _names_a_loop_variable(call, ctx):
         # one of many files (a loop's or a comprehension's): Polars infers the types of each
         # file porter never saw, and its inference differs from pandas' (a day's file with an
-        # all-blank column is text to it, float64 to pandas, and the concat then differs)
-        raise ctx.todo("the file read is only known when the script runs (a loop's or a "
-                       "comprehension's variable): pandas reads numbers written \" 5\" or "
-                       "\"+3\", an all-blank column as float and a file of a header only as "
-                       "object columns, where Polars' scan infers text; the read stays pandas'")
+        # all-blank column is text to it, float64 to pandas, and the concat then differs).
+        # With --data, a loop over a listing porter can make there (glob.glob, Path.glob,
+        # os.listdir) names the files: the scan is told the schema they all share
+        listed = _files_of_a_loop(call, ctx)
+        if not isinstance(listed, tuple):
+            raise ctx.todo("the file read is only known when the script runs (a loop's or a "
+                           "comprehension's variable): pandas reads numbers written \" 5\" or "
+                           "\"+3\", an all-blank column as float and a file of a header only as "
+                           "object columns, where Polars' scan infers text; the read stays "
+                           "pandas'" + (f" ({listed})" if listed else
+                                        " (with --data, porter reads the files of a glob.glob, "
+                                        "Path.glob or os.listdir the loop goes over)"))
+        globbed = listed
+        source = replace(source, choices=listed)
+        call = _with_source(call, source)
+        ctx.lower("the files the loop lists when the script runs may be others than --data's: "
+                  "each is read with the types the files listed there share (a value that does "
+                  "not fit fails, loudly)", 0.95)
     if _paths(source) is None:
         ctx.lower("the file is named when the script runs (porter never saw it): Polars infers "
                   "its types over the whole file as pandas does, but reads numbers written "
@@ -398,6 +514,8 @@ def _read_csv(call: PandasCall, ctx: RuleContext) -> Value:
         options["nrows"] = nrows
 
     schema = ctx.input_schema("csv", _paths(source), options)
+    if globbed is not None:
+        schema = _check_globbed(globbed, "csv", options, ctx)
     if schema is None and isinstance(_paths(source), str) and not options.keys() - {"sep"}:
         written = _written_frame(_paths(source), sep or ",", ctx)  # type: ignore[arg-type]
         if written is not None:
@@ -1319,6 +1437,18 @@ def read_parquet(call: PandasCall, ctx: RuleContext) -> Value:
     ctx.reject_unknown(call, "path", "columns", "engine", positional=1)
     source = call.arg("path", 0)
     path = _paths(source)
+    if path is None and isinstance(source, Opaque) and _names_a_loop_variable(call, ctx):
+        # a loop's or a comprehension's variable over files porter lists in --data: the scan
+        # knows their columns when every file has the same ones, of the same types (else it
+        # reads each file's own, as before)
+        listed = _files_of_a_loop(call, ctx, "path")
+        if isinstance(listed, tuple):
+            try:
+                _check_globbed(listed, "parquet", {}, ctx)
+            except Unsupported:
+                pass
+            else:
+                path = listed
     schema = ctx.input_schema("parquet", path, {})
     pandas = _pandas_name(ctx)
     written = isinstance(path, str) and _pandas_may_write_parquet(ctx.python_module, path)

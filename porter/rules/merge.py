@@ -1173,6 +1173,8 @@ def _listed_frames(call: PandasCall, ctx: RuleContext) -> tuple[list[Frame], Cod
         if any(f.index for f in given.members):
             raise ctx.todo("frames with an index appended to the list: call reset_index() first")
         return list(given.members), given.code
+    if isinstance(node, (cst.ListComp, cst.GeneratorExp)):
+        return _comprehended_frames(node, call, ctx)
     if not isinstance(node, (cst.List, cst.Tuple)):
         raise ctx.todo("the frames are not written out as a list, so porter cannot see them")
     frames: list[Frame] = []
@@ -1189,6 +1191,52 @@ def _listed_frames(call: PandasCall, ctx: RuleContext) -> tuple[list[Frame], Cod
     if not frames:
         raise ctx.todo("an empty list (pandas raises ValueError)")
     return frames, None
+
+
+class _OneLine(cst.CSTTransformer):
+    """The clause as one line (the layout breaks the code porter writes where it is long)."""
+
+    def leave_ParenthesizedWhitespace(self, original: cst.ParenthesizedWhitespace,
+                                      updated: cst.ParenthesizedWhitespace) -> cst.SimpleWhitespace:
+        return cst.SimpleWhitespace(" ")
+
+
+def _comprehended_frames(node: cst.ListComp | cst.GeneratorExp, call: PandasCall,
+                         ctx: RuleContext) -> tuple[list[Frame], Code]:
+    """pd.concat([pd.read_csv(f) for f in files], ignore_index=True): one `for` clause whose
+    element is a frame porter tracks (the same frame for every value, as a list filled by
+    append holds: analysis/frame_lists.py) -> a list comprehension of LazyFrames over the same
+    values, filtered by the same conditions, so the pieces are stacked in the order pandas
+    stacks them. Without ignore_index pandas keeps each piece's row labels: a TODO, as for
+    a list filled by append."""
+    clause = node.for_in
+    if not call.const("ignore_index", None, False):
+        raise ctx.todo("a comprehension of frames without ignore_index=True: pandas keeps each "
+                       "piece's row labels, which Polars has no place for")
+    if clause.inner_for_in is not None or clause.asynchronous is not None \
+            or not isinstance(clause.target, cst.Name):
+        raise ctx.todo("the frames are not written out as a list, so porter cannot see them "
+                       "(a comprehension of one `for` over one name is read)")
+    name = clause.target.value
+    loop = {name: Opaque(emit.atom(name))}
+    pieces = [ctx.evaluate(clause.iter, {}), *(ctx.evaluate(c.test, loop) for c in clause.ifs)]
+    if not all(isinstance(p, Opaque) for p in pieces):
+        raise ctx.todo("a comprehension of frames over pandas values: porter reads one over "
+                       "plain Python values")
+    value = ctx.evaluate(node.elt, loop)
+    if not isinstance(value, Frame) or value.index:
+        raise ctx.todo(f"`{value.code.text}` is not a frame porter tracks: make it a "
+                       "LazyFrame (pl.from_pandas(...).lazy()) where it is built")
+    if value.columns is None or any(value.dtype(c) is None for c in value.columns):
+        # one value stands for every piece: columns (or types) porter does not know may
+        # differ from one piece to the next, where pandas makes an int column with a gap
+        # float, and text beside numbers an object column
+        raise ctx.todo("a comprehension of frames whose columns or their types porter does "
+                       "not know: they may differ from one piece to the next")
+    listed = cst.ListComp(elt=cst.parse_expression(value.code.text),
+                          for_in=clause.visit(_OneLine()))  # type: ignore[arg-type]
+    ctx.args_evaluated_again = True
+    return [value], emit.atom(cst.Module([]).code_for_node(listed))
 
 
 def _drop_index(frame: Frame) -> Frame:

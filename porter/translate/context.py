@@ -134,6 +134,9 @@ class RuleContext:
     python_module: Any = None  # the script as Python's ast.Module (row_functions), or None
     runs_function: bool = False  # the rewrite still calls the script's function it was given
     stacked_rows: tuple[int, ...] = ()  # the result's rows are these frames' rows, one after another
+    # the rule evaluated its arguments' code again itself (pd.concat of a comprehension): the
+    # sites of their first evaluation (a frame in code porter did not read, handed over) go
+    args_evaluated_again: bool = False
 
     def needs_review(self, reason: str) -> None:
         """Keep the rewrite but report the site as a TODO (for example a hand-back from pandas)."""

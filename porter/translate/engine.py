@@ -298,6 +298,7 @@ class _Walker:
         # str.extract's columns kept in the text's frame under names of their own (see
         # parts_as_columns): the line of the name's last read -> (frame, those columns)
         self.parts_drops: dict[int, tuple[str, tuple[str, ...]]] = {}
+        services.changed_only_afresh = self.changed_only_afresh
         # the names holding such frames of parts: their text's frame, and each label's column
         self.parts_columns: dict[str, tuple[str, dict[object, str]]] = {}
         self._bound: dict[str, list[int]] | None = None  # see bound_lines
@@ -876,6 +877,36 @@ class _Walker:
             return frames
         return [n for n in frames if self.changed_since(n, after, own=True)]
 
+    def changed_only_afresh(self, name: str) -> bool:
+        """Whether every change in place of `name`'s object comes before the statement at hand
+        and, in the loops and functions around it, after the name is bound afresh there
+        (`part = pd.read_csv(path); part["c"] = ...; frames.append(part)`): what the statement
+        holds of it then is never changed again (each run changes the next frame)."""
+        here = self.services.statement_lines[0]
+        for line in self.services.changed_in_place.get(name, ()):
+            if line >= here:
+                return False
+            # each loop (or function) around both must bind the name afresh, in its own body
+            # and not under a condition, before the change: else a later turn changes the
+            # frame appended in an earlier one
+            if not self.bound_afresh_before(name, line):
+                return False
+        return True
+
+    def fresh_lines(self, span: tuple[int, int], name: str) -> list[int]:
+        """The lines where the loop or function starting at span[0] binds `name` by a
+        statement of its own body (not nested in an `if`, a `try` or another loop)."""
+        module = self.services.python_module
+        if module is None:
+            return []
+        for node in ast.walk(module):
+            if isinstance(node, (ast.For, ast.AsyncFor, ast.While, ast.FunctionDef,
+                                 ast.AsyncFunctionDef)) and node.lineno == span[0]:
+                return [stmt.lineno for stmt in node.body
+                        if isinstance(stmt, ast.Assign) and any(
+                            isinstance(t, ast.Name) and t.id == name for t in stmt.targets)]
+        return []
+
     def changed_through(self, aliases: list[str], after: int) -> list[str]:
         """The names holding what `aliases` hold that a change in place goes through."""
         return sorted(n for n in self.reached_through(aliases)
@@ -890,9 +921,16 @@ class _Walker:
             if line > after:
                 return True
             if span is not None and span[0] <= line <= span[1] and not (
-                    own and any(span[0] <= b <= span[1] for b in self.bound_lines().get(name, ()))):
+                    own and self.bound_afresh_before(name, line)):
                 return True
         return False
+
+    def bound_afresh_before(self, name: str, line: int) -> bool:
+        """Whether each loop (or function) around the statement at hand that holds the change
+        at `line` binds `name` afresh before it, by a statement of its own body: the change is
+        then to that turn's new frame (see fresh_lines)."""
+        return all(any(span[0] <= b < line for b in self.fresh_lines(span, name))
+                   for span in self.spans if span[0] <= line <= span[1])
 
     def bound_lines(self) -> dict[str, list[int]]:
         """Where each name is bound (assigned, a loop's or a `with`'s target)."""

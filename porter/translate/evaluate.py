@@ -120,6 +120,9 @@ class Services:
     # names whose object the script changes in place (`df["c"] = ...`, inplace=True), with the
     # lines where it does
     changed_in_place: dict[str, list[int]] = field(default_factory=dict)
+    # whether a name's changes in place all come before the statement at hand, each to a frame
+    # bound afresh in the loop around it (engine._Walker.changed_only_afresh)
+    changed_only_afresh: Callable[[str], bool] | None = None
     changed_at: dict[str, list[tuple[int, int]]] = field(default_factory=dict)  # (line, column)
     # how many times each name is written in the module (a loop's row read after the loop)
     name_uses: dict[str, int] = field(default_factory=dict)
@@ -256,7 +259,9 @@ class Evaluator:
         given = node.args[0].value
         value = self.eval(given)
         if not isinstance(value, Frame) or value.index \
-                or isinstance(given, cst.Name) and given.value in self.services.changed_in_place:
+                or isinstance(given, cst.Name) and given.value in self.services.changed_in_place \
+                and not (self.services.changed_only_afresh is not None
+                         and self.services.changed_only_afresh(given.value)):
             # something else than a frame porter tracks, or a frame the script changes in
             # place later (pandas' list holds that same object, which sees the change)
             self.services.frame_lists_refused.add(name)
@@ -1287,6 +1292,8 @@ class Evaluator:
             if isinstance(function, Opaque) and isinstance(function.node, cst.Name):
                 self.services.applied_functions.setdefault(function.node.value, set()).add(id(node))
                 self.services.applied_kinds.setdefault(function.node.value, set()).add(_APPLIES[key])
+        if ctx.args_evaluated_again:
+            call = replace(call, args=(), kwargs={})
         return result.with_sites(*_child_sites(call, result), site)
 
     def evaluate_with(self, node: cst.BaseExpression, bindings: dict[str, Value]) -> Value:
