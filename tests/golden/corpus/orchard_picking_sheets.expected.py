@@ -1,0 +1,706 @@
+# picking sheets -> weekly summary for the co-op meeting (quick and dirty, run from this folder)
+import polars as pl
+
+# Text that pandas' read_csv reads as a missing value.
+PANDAS_NA_VALUES = [
+    "", "#N/A", "#N/A N/A", "#NA", "-1.#IND", "-1.#QNAN", "-NaN", "-nan", "1.#IND",
+    "1.#QNAN", "<NA>", "N/A", "NA", "NULL", "NaN", "None", "n/a", "nan", "null",
+]
+
+
+def pandas_reduce(values, how="sum", ddof=1):
+    """The sum, mean, std or var (how="sum" / "mean" / "std" / "var") of a column of numbers
+    as pandas computes them: numpy's pairwise sum of the values as floats, a missing one
+    counted 0 in its place; the mean over the count of values present; the var from the
+    squared distances to that mean (0 where a value is missing), added the same way, over
+    count - ddof, and the std its square root. NaN where there are too few values. Polars
+    adds in another order, and the last digit can differ (55.080000000000005 for
+    55.08000000000001, a std of 3.265986323710904 for 3.2659863237109046)."""
+    def reduce(column):
+        import numpy as np
+
+        present = column.is_not_null().to_numpy()
+        numbers = column.cast(pl.Float64).fill_null(0.0).to_numpy()
+        total = numbers.sum()
+        if how == "sum":
+            return total
+        count = int(present.sum())
+        if how == "mean":
+            return total / count if count else float("nan")
+        if count <= ddof:
+            return float("nan")
+        squares = (total / count - numbers) ** 2
+        squares[~present] = 0.0
+        spread = squares.sum() / (count - ddof)
+        return float(np.sqrt(spread) if how == "std" else spread)
+
+    return values.map_batches(reduce, returns_scalar=True, return_dtype=pl.Float64)
+
+
+def pandas_group_sums(values, mean=False, sorted_within=None, in_key_order=None, floats=True):
+    """Each group's sum of floats (mean=True: mean) as pandas computes it, from the group's
+    values as a list (pl.col(...) in an agg). pandas adds a group with a compensated (Kahan)
+    sum in row order, missing values skipped, which is what Polars' rolling sum computes over
+    a window longer than the group; Polars' own sum adds in another order and can end a unit
+    in the last digit away (212.40000000000003 for 212.4). Where the rows reach pandas
+    grouped in the order of the sorted keys and none is missing, it adds with numpy's
+    reduceat instead: the first value plus numpy's pairwise sum of the rest. That is a
+    resample (sorted_within names the keys whose rows are binned together, [] for all rows)
+    where no value of those rows is missing, or a groupby whose in_key_order says so
+    (computed on the rows before grouping). floats=False: the column's type is not known;
+    whole numbers and True/False are added as Polars adds them (exactly), into Int64."""
+    kept = pl.element().fill_nan(None).drop_nulls()
+    whole_group = 2**40  # a window longer than any group
+
+    def compensated(lists):
+        total = lists.list.eval(kept.rolling_sum(whole_group, min_samples=1).last())
+        total = total.list.first().fill_null(0.0)
+        if not mean:
+            return total
+        return (total / lists.list.eval(kept.len()).list.first()).fill_nan(None)
+
+    def add(columns):
+        lists = columns[0]
+        if lists.dtype.inner != pl.Float64:  # whole numbers, True/False: exact sums
+            total = lists.list.mean() if mean else lists.list.sum()
+            return total.cast(pl.Int64) if total.dtype.is_unsigned_integer() else total
+        if len(columns) == 1 or not len(lists):
+            return compensated(lists)
+        import numpy as np
+
+        sizes = lists.list.len().cast(pl.Int64).to_numpy()
+        clean = columns[1].to_numpy() & (sizes > 0)
+        flat = lists.explode().to_numpy()  # an empty list: one missing value
+        starts = np.concatenate(([0], np.maximum(sizes, 1).cumsum()[:-1]))
+        with np.errstate(invalid="ignore"):
+            total = np.add.reduceat(flat, starts)
+        if mean:
+            total = total / np.maximum(sizes, 1)
+        if not clean.all():
+            total = np.where(clean, total, compensated(lists).to_numpy())
+        return pl.Series(total).fill_nan(None) if mean else pl.Series(total)
+
+    kind = pl.Float64 if floats else None
+    if sorted_within is None and in_key_order is None:
+        if floats:
+            return compensated(values)
+        return values.map_batches(lambda lists: add([lists]), return_dtype=kind)
+    missing = values.list.eval(pl.element().cast(pl.Float64).fill_nan(None).is_null()).list.any()
+    if in_key_order is not None:
+        clean = in_key_order & ~missing.any()
+    else:
+        clean = ~(missing.any().over(sorted_within) if sorted_within else missing.any())
+    return pl.map_batches([values, clean], add, return_dtype=kind)
+
+
+def pandas_title(text):
+    """text.str.to_titlecase() as pandas' str.title() writes it (pyarrow's kernel, one letter
+    at a time): "Σ" is "σ" at the end of a word too, "ß" first in a word is "ẞ" (Polars: "Ss"),
+    a digraph first in a word is its upper case ("ǆemal" -> "Ǆemal", Polars: "ǅemal"), "İ"
+    inside a word is "i" (Polars: i and a combining dot), and a letter Polars writes as two or
+    three first in a word ("ﬁ" as "Fi") is kept: a letter without case set before it makes
+    Polars read it as inside a word, and is taken out after. A letter without case (CJK,
+    Hebrew, a modifier letter) ends a word for pandas, not for Polars: a mark that is no
+    letter (U+FFFF) is set after each, and taken out after. Where a batch of values holds none of
+    these letters, Polars' own title case is pandas', and only that is computed."""
+    kept, mark = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾲᾴᾶᾷῂῄῆῇῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷﬀ-ﬆﬓ-ﬗ]", "\ua66e"
+    special = r"[ΣßǄ-ǌǱ-ǳİ\u0307\uffffŉǰΐΰևẖ-ẚὐὒὔὖᾲᾴᾶᾷῂῄῆῇῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷﬀ-ﬆﬓ-ﬗ[\p{Alphabetic}&&[^\p{Lu}\p{Ll}\p{Lt}]&&[^\p{Cased}&&[\p{Nl}\x{24b6}-\x{24e9}]]]]"
+
+    def title(values):
+        if not values.str.contains(special).any():
+            return values.str.to_titlecase()
+        return (
+            values.str.replace_many({"Σ": "σ", "ß": "ẞ"})
+            .str.replace_all(r"[\p{Alphabetic}&&[^\p{Lu}\p{Ll}\p{Lt}]&&[^\p{Cased}&&[\p{Nl}\x{24b6}-\x{24e9}]]]", "$0\uffff")
+            .str.replace_all(kept, mark + "$0")
+            .str.to_titlecase()
+            .str.replace_all("\uffff", "", literal=True)
+            .str.replace_many({"ǅ": "Ǆ", "ǈ": "Ǉ", "ǋ": "Ǌ", "ǲ": "Ǳ", "i\u0307": "i"})
+            .str.replace_all(mark + f"({kept})", "$1")
+        )
+
+    return text.map_batches(title, return_dtype=pl.String, is_elementwise=True)
+
+
+def pandas_upper(text):
+    """text.str.to_uppercase() as pandas' str.upper() writes it (pyarrow's kernel, one letter
+    at a time): "ß" is "ẞ" (Polars: "SS"), and a letter Polars writes as two or three ("ﬁ" as
+    "FI", "ŉ", Greek letters with accents or an iota) is kept, or made its one capital, as
+    pandas does: the text is cut around those letters and each piece upper-cased. A batch of
+    values that holds none of them gets Polars' own upper case, and only that is computed."""
+    kept, iota = "[ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗ]", "[ᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]"
+
+    def upper(values):
+        values = values.str.replace_all("ß", "ẞ", literal=True)
+        special = values.str.contains(f"{kept}|{iota}")
+        if not special.any():
+            return values.str.to_uppercase()
+        piece = pl.element()
+        by_piece = (
+            pl.first().str.extract_all(f"{kept}|{iota}|[^ŉǰΐΰևẖ-ẚὐὒὔὖᾈ-ᾏᾘ-ᾟᾨ-ᾯᾲᾴᾶᾷᾼῂῄῆῇῌῒ\u1fd3ῖῗῢ-ῤῦῧῲῴῶῷῼﬀ-ﬆﬓ-ﬗᾀ-ᾇᾐ-ᾗᾠ-ᾧᾳῃῳ]+")
+            .list.eval(
+                pl.when(piece.str.contains(f"^{kept}$")).then(piece)
+                .when(piece.str.contains(f"^{iota}$")).then(piece.str.to_titlecase())
+                .otherwise(piece.str.to_uppercase())
+            )
+            .list.join("")
+        )
+        return values.to_frame().select(
+            pl.when(special).then(by_piece).otherwise(pl.first().str.to_uppercase())
+        ).to_series()
+
+    return text.map_batches(upper, return_dtype=pl.String, is_elementwise=True)
+
+
+def pandas_to_datetime(text, coerce):
+    """pd.to_datetime(text) without format=, as pandas reads it: pandas guesses one
+    format from the first value (the first format below whose first pattern reads a
+    real date in it) and reads every value with it (the second pattern); a value it
+    does not fit is missing (coerce) or an error, as is a first value in none of
+    these formats. Each value is rewritten into one layout Polars reads."""
+    def read(layouts, strict):
+        return (layouts.str.replace_many(['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December', 'Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'],
+                                          ['1', '2', '3', '4', '5', '6', '7', '8', '9', '10', '11', '12', '1', '2', '3', '4', '5', '6', '7', '8', '9', '10', '11', '12'],
+                                          ascii_case_insensitive=True, leftmost=True)
+                .str.to_datetime('%Y/%m/%d %H:%M:%S%.f=', time_unit="us", strict=strict))
+
+    first = text.filter(~text.is_in(['', 'NaT', 'nat', 'NAT', 'nan', 'NaN', 'NAN', 'now', 'today'])).first()
+    written = text
+    if not coerce:  # pandas' texts for NaT are missing, not an error
+        text = text.replace(['', 'NaT', 'nat', 'NAT', 'nan', 'NaN', 'NAN'], None)
+    # blanks before or after the first value are part of pandas' format (' %Y-%m-%d'):
+    # every value needs a run of blanks there
+    bare, lead, trail = (~first.str.contains(r"^\s|\s$"), first.str.contains(r"^\s"),
+                         first.str.contains(r"\s$"))
+    first = first.str.strip_chars()
+
+    def blanks(pattern, front, back):
+        return pattern.replace("^(?:", "^(?:" + front, 1)[:-3] + back + ")|^"
+
+    formats = [
+        # %Y-%m-%d
+        ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9])$',
+         '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^',
+         '${Y}/${m}/${d} 0:0:0='),
+        # %Y-%m-%d %H:%M
+        ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9]) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+         '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]))|^',
+         '${Y}/${m}/${d} ${H}:${M}:0='),
+        # %Y-%m-%d %H:%M:%S
+        ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9]) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+         '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]):(?P<S>6[0-1]|[0-5][0-9]|[0-9]))|^',
+         '${Y}/${m}/${d} ${H}:${M}:${S}='),
+        # %Y-%m-%d %H:%M:%S.%f
+        ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9]) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])\\.(?:[0-9]{1,6})$',
+         '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]):(?P<S>6[0-1]|[0-5][0-9]|[0-9])\\.(?P<f>[0-9]{1,9}))|^',
+         '${Y}/${m}/${d} ${H}:${M}:${S}.${f}='),
+        # %Y-%m-%dT%H:%M:%S
+        ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9])T(?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+         '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])T(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]):(?P<S>6[0-1]|[0-5][0-9]|[0-9]))|^',
+         '${Y}/${m}/${d} ${H}:${M}:${S}='),
+        # %Y-%m-%dT%H:%M:%S.%f
+        ('^(?:[1-9][0-9]{3})-(?:1[0-2]|0[1-9]|[1-9])-(?:3[01]|[12][0-9]|0[1-9]|[1-9])T(?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])\\.(?:[0-9]{1,6})$',
+         '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))-(?P<m>1[0-2]|0[1-9]|[1-9])-(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])T(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]):(?P<S>6[0-1]|[0-5][0-9]|[0-9])\\.(?P<f>[0-9]{1,9}))|^',
+         '${Y}/${m}/${d} ${H}:${M}:${S}.${f}='),
+        # %Y/%m/%d
+        ('^(?:[1-9][0-9]{3})/(?:1[0-2]|0[1-9]|[1-9])/(?:3[01]|[12][0-9]|0[1-9]|[1-9])$',
+         '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))/(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^',
+         '${Y}/${m}/${d} 0:0:0='),
+        # %Y%m%d
+        ('^(?:[1-9][0-9]{3})(?:1[0-2]|0[1-9])(?:3[01]|[12][0-9]|0[1-9])$',
+         '(?i)^(?:(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))(?P<m>1[0-2]|0[1-9]|[1-9])(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]))|^',
+         '${Y}/${m}/${d} 0:0:0='),
+        # %m/%d/%Y
+        ('^(?:1[0-2]|0[1-9]|[1-9])/(?:3[01]|[12][0-9]|0[1-9]|[1-9])/(?:[1-9][0-9]{3})$',
+         '(?i)^(?:(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])/(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+         '${Y}/${m}/${d} 0:0:0='),
+        # %d/%m/%Y
+        ('^(?:3[01]|[12][0-9]|0[1-9]|[1-9])/(?:1[0-2]|0[1-9]|[1-9])/(?:[1-9][0-9]{3})$',
+         '(?i)^(?:(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])/(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+         '${Y}/${m}/${d} 0:0:0='),
+        # %m/%d/%Y %H:%M
+        ('^(?:1[0-2]|0[1-9]|[1-9])/(?:3[01]|[12][0-9]|0[1-9]|[1-9])/(?:[1-9][0-9]{3}) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+         '(?i)^(?:(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])/(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]))|^',
+         '${Y}/${m}/${d} ${H}:${M}:0='),
+        # %d/%m/%Y %H:%M
+        ('^(?:3[01]|[12][0-9]|0[1-9]|[1-9])/(?:1[0-2]|0[1-9]|[1-9])/(?:[1-9][0-9]{3}) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+         '(?i)^(?:(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])/(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]))|^',
+         '${Y}/${m}/${d} ${H}:${M}:0='),
+        # %m/%d/%Y %H:%M:%S
+        ('^(?:1[0-2]|0[1-9]|[1-9])/(?:3[01]|[12][0-9]|0[1-9]|[1-9])/(?:[1-9][0-9]{3}) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+         '(?i)^(?:(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])/(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]):(?P<S>6[0-1]|[0-5][0-9]|[0-9]))|^',
+         '${Y}/${m}/${d} ${H}:${M}:${S}='),
+        # %d/%m/%Y %H:%M:%S
+        ('^(?:3[01]|[12][0-9]|0[1-9]|[1-9])/(?:1[0-2]|0[1-9]|[1-9])/(?:[1-9][0-9]{3}) (?:2[0-3]|[01][0-9]|[0-9]):(?:[0-5][0-9]|[0-9]):(?:[0-5][0-9]|[0-9])$',
+         '(?i)^(?:(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])/(?P<m>1[0-2]|0[1-9]|[1-9])/(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9]))\\s+(?P<H>2[0-3]|[0-1][0-9]|[0-9]):(?P<M>[0-5][0-9]|[0-9]):(?P<S>6[0-1]|[0-5][0-9]|[0-9]))|^',
+         '${Y}/${m}/${d} ${H}:${M}:${S}='),
+        # %m.%d.%Y
+        ('^(?:1[0-2]|0[1-9]|[1-9])\\.(?:3[01]|[12][0-9]|0[1-9]|[1-9])\\.(?:[1-9][0-9]{3})$',
+         '(?i)^(?:(?P<m>1[0-2]|0[1-9]|[1-9])\\.(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\.(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+         '${Y}/${m}/${d} 0:0:0='),
+        # %d.%m.%Y
+        ('^(?:3[01]|[12][0-9]|0[1-9]|[1-9])\\.(?:1[0-2]|0[1-9]|[1-9])\\.(?:[1-9][0-9]{3})$',
+         '(?i)^(?:(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\.(?P<m>1[0-2]|0[1-9]|[1-9])\\.(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+         '${Y}/${m}/${d} 0:0:0='),
+        # %B %d, %Y
+        ('^(?:September|February|November|December|January|October|August|March|April|June|July|May) (?:3[01]|[12][0-9]|0[1-9]|[1-9]), (?:[1-9][0-9]{3})$',
+         '(?i)^(?:(?P<B>september|february|november|december|january|october|august|march|april|june|july|may)\\s+(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]),\\s+(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+         '${Y}/${B}/${d} 0:0:0='),
+        # %b %d, %Y
+        ('^(?:Jan|Feb|Mar|Apr|May|Jun|Jul|Aug|Sep|Oct|Nov|Dec) (?:3[01]|[12][0-9]|0[1-9]|[1-9]), (?:[1-9][0-9]{3})$',
+         '(?i)^(?:(?P<b>jan|feb|mar|apr|may|jun|jul|aug|sep|oct|nov|dec)\\s+(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9]),\\s+(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+         '${Y}/${b}/${d} 0:0:0='),
+        # %d %B %Y
+        ('^(?:3[01]|[12][0-9]|0[1-9]|[1-9]) (?:September|February|November|December|January|October|August|March|April|June|July|May) (?:[1-9][0-9]{3})$',
+         '(?i)^(?:(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?P<B>september|february|november|december|january|october|august|march|april|june|july|may)\\s+(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+         '${Y}/${B}/${d} 0:0:0='),
+        # %d %b %Y
+        ('^(?:3[01]|[12][0-9]|0[1-9]|[1-9]) (?:Jan|Feb|Mar|Apr|May|Jun|Jul|Aug|Sep|Oct|Nov|Dec) (?:[1-9][0-9]{3})$',
+         '(?i)^(?:(?P<d>3[0-1]|[1-2][0-9]|0[1-9]|[1-9]| [1-9])\\s+(?P<b>jan|feb|mar|apr|may|jun|jul|aug|sep|oct|nov|dec)\\s+(?P<Y>[1-9][0-9]{3}|0(?:[1-9][0-9]{2}|0[1-9][0-9]|00[1-9])))|^',
+         '${Y}/${b}/${d} 0:0:0='),
+    ]
+    fits = [first.str.contains(selection)
+            & read(first.str.replace(pattern, layout), False).is_not_null()
+            for selection, pattern, layout in formats]
+    guessed = [
+        pl.when(fit)
+        .then(pl.when(bare).then(text.str.replace(pattern, layout))
+              .when(~trail).then(text.str.replace(blanks(pattern, r"\s+", ""), layout))
+              .when(~lead).then(text.str.replace(blanks(pattern, "", r"\s+"), layout))
+              .otherwise(text.str.replace(blanks(pattern, r"\s+", r"\s+"), layout)))
+        for fit, (selection, pattern, layout) in zip(fits, formats)
+    ]
+    # a first value in none of these formats (a word, an impossible day such as
+    # 2024-02-30, am/pm, a time zone): pandas guesses another format or none and
+    # reads the values its own way, so pandas reads them here
+    known = first.is_null() | pl.any_horizontal(fits)
+
+    def by_pandas(columns):
+        values, known = columns
+        if known.len() == 0 or known.all():
+            return pl.Series(values.name, [None] * values.len(), dtype=pl.Datetime("us"))
+        pandas = __import__("pandas")
+
+        dates = pandas.to_datetime(values.to_pandas(), errors="coerce" if coerce else "raise")
+        if dates.dtype.kind != "M" or getattr(dates.dtype, "tz", None) is not None:
+            raise ValueError("pandas reads these values as dates with a time zone, "
+                             "which this port does not hold")
+        return pl.from_pandas(dates).cast(pl.Datetime("us"))
+
+    ours = read(pl.when(known).then(pl.coalesce(guessed if coerce else [*guessed, text])),
+                not coerce)
+    return pl.coalesce(ours, pl.map_batches([written, known], by_pandas,
+                                            return_dtype=pl.Datetime("us")))
+
+
+def pandas_sort_values(frame, by, descending=False, nulls_last=True):
+    """The frame sorted by one column (a name or an expression) in the order pandas'
+    sort_values gives: pandas sorts numbers, True/False and dates with numpy's quicksort, which
+    does not keep tied rows in their order (Polars' sort does); missing values (NaN too) come
+    first or last, in their order. Text is sorted stably by pandas, as by Polars."""
+
+    def positions(values):
+        # each row's position in pandas' order
+        if values.dtype.is_float():
+            values = values.fill_nan(None)  # NaN is missing to pandas
+        if not (values.dtype.is_numeric() or values.dtype in (
+                pl.Boolean, pl.Date, pl.Datetime, pl.Duration)):
+            rank = values.rank("ordinal", descending=descending).cast(pl.Int64)
+            missing = values.is_null().cum_sum().cast(pl.Int64)
+            if nulls_last:
+                return rank.fill_null(missing + values.len() - values.null_count())
+            return (rank + values.null_count()).fill_null(missing)
+        import numpy as np
+
+        # the values as pandas holds them: integers with a missing value are floats, and
+        # True/False with a missing value are objects (each is sorted another way by numpy)
+        numbers = values.drop_nulls().to_numpy()
+        if values.dtype.is_integer() and values.has_nulls():
+            numbers = numbers.astype(np.float64)
+        elif values.dtype == pl.Boolean and values.has_nulls():
+            numbers = numbers.astype(object)
+        rows = np.flatnonzero(values.is_not_null().to_numpy())
+        if descending:  # as pandas' nargsort: reversed, sorted, reversed again
+            order = rows[::-1][numbers[::-1].argsort(kind="quicksort")][::-1]
+        else:
+            order = rows[numbers.argsort(kind="quicksort")]
+        missing = np.flatnonzero(values.is_null().to_numpy())
+        order = np.concatenate([order, missing] if nulls_last else [missing, order])
+        key = np.empty(len(order), dtype=np.int64)
+        key[order] = np.arange(len(order))
+        return pl.Series(values.name, key)
+
+    # a column of its own: Polars merges consecutive sorts, and would compute the positions
+    # from the rows before an earlier sort
+    by = pl.col(by) if isinstance(by, str) else by
+    return (
+        frame.with_columns(by.map_batches(positions, return_dtype=pl.Int64).alias("_pandas_order"))
+        .sort("_pandas_order")
+        .drop("_pandas_order")
+    )
+
+
+def pandas_percentiles(column, qs):
+    """The quantiles qs of the column's values as pandas computes them: numpy's percentile
+    of the values present (linear interpolation, to the last binary digit and the sign of a
+    zero), a row each; missing where the column holds no value."""
+    import numpy as np
+
+    def percentiles(values):
+        present = values.drop_nulls().cast(pl.Float64).to_numpy()
+        if not len(present):
+            return pl.Series([None] * len(qs), dtype=pl.Float64)
+        return pl.Series(np.percentile(present, [q * 100 for q in qs]), dtype=pl.Float64)
+
+    return column.map_batches(percentiles, return_dtype=pl.Float64)
+
+
+def pandas_div(numerator, divisor):
+    """numerator / divisor, each value divided as pandas divides it: Polars multiplies by the
+    reciprocal of a single divisor, which can be one binary digit off the quotient (and a later
+    round() then goes the other way)."""
+    return numerator / (numerator.is_null() * 0 + divisor)
+
+
+# The characters Python's str.isspace() calls whitespace, which pandas' str.strip() takes
+# off: Polars' strip_chars() leaves the separators \x1c-\x1f.
+PANDAS_WHITESPACE = (
+    "\t\n\x0b\x0c\r\x1c\x1d\x1e\x1f \x85\xa0\u1680"
+    "\u2000\u2001\u2002\u2003\u2004\u2005\u2006\u2007"
+    "\u2008\u2009\u200a\u2028\u2029\u202f\u205f\u3000"
+)
+
+# Datetime columns with a time zone as pandas' to_csv writes them: the time always, then the
+# offset (+01:00); no fraction of a second when none has one, milliseconds when they are enough.
+PANDAS_CSV_ZONED_DATETIMES = (
+    pl.when((pl.selectors.datetime(time_zone="*").dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%:z"))
+    .when((pl.selectors.datetime(time_zone="*").dt.microsecond() % 1000 == 0).all())
+    .then(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.3f%:z"))
+    .otherwise(pl.selectors.datetime(time_zone="*").dt.strftime("%Y-%m-%d %H:%M:%S%.6f%:z"))
+)
+
+# Datetime columns as pandas' to_csv writes them: dates only when every time in the column is
+# midnight, no fraction of a second when none has one, milliseconds when they are enough.
+PANDAS_CSV_DATETIMES = (
+    pl.when((pl.selectors.datetime() == pl.selectors.datetime().dt.truncate("1d")).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d"))
+    .when((pl.selectors.datetime().dt.microsecond() == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S"))
+    .when((pl.selectors.datetime().dt.microsecond() % 1000 == 0).all())
+    .then(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.3f"))
+    .otherwise(pl.selectors.datetime().dt.strftime("%Y-%m-%d %H:%M:%S%.6f"))
+)
+
+# Duration columns as pandas' to_csv writes them: "2 days" when every value is a whole number
+# of days, else "-1 days +23:00:00", with microseconds when one value has them.
+PANDAS_CSV_DURATIONS = (
+    pl.when((pl.selectors.duration().dt.total_microseconds() % 86_400_000_000 == 0).all())
+    .then(
+        (pl.selectors.duration().dt.total_microseconds() // 86_400_000_000).cast(pl.String)
+        + " days"
+    )
+    .otherwise(
+        (pl.selectors.duration().dt.total_microseconds() // 86_400_000_000).cast(pl.String)
+        + pl.when(pl.selectors.duration().dt.total_microseconds() < 0)
+        .then(pl.lit(" days +"))
+        .otherwise(pl.lit(" days "))
+        + (pl.selectors.duration().dt.total_microseconds() % 86_400_000_000 // 3_600_000_000)
+        .cast(pl.String).str.zfill(2)
+        + ":"
+        + (pl.selectors.duration().dt.total_microseconds() % 3_600_000_000 // 60_000_000)
+        .cast(pl.String).str.zfill(2)
+        + ":"
+        + (pl.selectors.duration().dt.total_microseconds() % 60_000_000 // 1_000_000)
+        .cast(pl.String).str.zfill(2)
+        + pl.when((pl.selectors.duration().dt.total_microseconds() % 1_000_000 == 0).all())
+        .then(pl.lit(""))
+        .otherwise(
+            "." + (pl.selectors.duration().dt.total_microseconds() % 1_000_000)
+            .cast(pl.String).str.zfill(6)
+        )
+    )
+)
+
+
+# Float columns as pandas' to_csv writes them (Python's repr): 5e-05 and 1.5e-07, where Polars
+# writes 0.00005 and 1.5e-7; NaN as an empty field. Only values below 0.0001 (other than 0)
+# need the replacements, and only they are given them.
+def pandas_csv_floats(values):
+    text = values.fill_nan(None).cast(pl.String)
+    small = (values.abs() < 1e-4) & (values != 0)
+    if not small.any():
+        return text
+    repr_text = (
+        text.filter(small)
+        .str.replace(r"e-(\d)$", "e-0${1}")
+        .str.replace(r"^(-?)0\.0000(\d)$", "${1}${2}e-05")
+        .str.replace(r"^(-?)0\.0000(\d)(\d+)$", "${1}${2}.${3}e-05")
+    )
+    return text.scatter(small.arg_true(), repr_text)
+
+
+PANDAS_CSV_FLOATS = pl.selectors.float().map_batches(
+    pandas_csv_floats, return_dtype=pl.String, is_elementwise=True,
+)
+
+# Integer columns as pandas' to_csv writes them: one holding a missing value is float in
+# pandas (2024.0), one without stays integer (2024).
+PANDAS_CSV_INTS = (
+    pl.when(pl.selectors.integer().null_count() > 0)
+    .then(pl.selectors.integer().cast(pl.Float64).cast(pl.String))
+    .otherwise(pl.selectors.integer().cast(pl.String))
+)
+
+
+def clean(df):
+    df = df.rename(
+        dict(
+            zip(
+                df.collect_schema().names(),
+                [c.strip().lower() for c in df.collect_schema().names()],
+            ),
+        ),
+    )
+    df = df.with_columns(
+        variety=pandas_title(pl.col("variety").str.strip_chars(PANDAS_WHITESPACE)),
+    )
+    df = df.with_columns(grade=pandas_upper(pl.col("grade")).replace("", None))
+    df = df.with_columns(picked_on=pandas_to_datetime(pl.col("picked_on"), coerce=True))
+    df = df.with_columns(
+        crates=pl.col("crates")
+        .cast(pl.String)
+        .str.strip_chars()
+        .cast(pl.Float64, strict=False)
+        .fill_nan(None)
+        .fill_null(0)
+        .cast(pl.Int64),
+    )
+    return df
+
+
+picks = clean(
+    pl.scan_csv(
+        "data/picks.csv",
+        null_values=PANDAS_NA_VALUES,
+        infer_schema_length=None,
+    ),
+)
+pickers = pl.scan_csv(
+    "data/pickers.csv",
+    null_values=PANDAS_NA_VALUES,
+    infer_schema_length=None,
+)
+
+picks = (
+    picks
+    .rename(
+        lambda c, other=pickers.collect_schema().names(): c + "_x" if c in other and c not in ("picker",) else c,
+    )
+    .join(
+        pickers.rename(
+            lambda c, other=picks.collect_schema().names(): c + "_y" if c in other and c not in ("picker",) else c,
+        ),
+        on="picker",
+        how="left",
+        nulls_equal=True,
+        maintain_order="left_right",
+    )
+    .with_columns(
+        value=(pl.col("crates") * pl.col("price_per_crate")).fill_nan(None),
+        weekday=pl.col("picked_on").dt.to_string("%A"),
+    )
+)
+picks = picks.with_columns(
+    value=pl.when(pl.col("grade") == "C")
+    .then(pl.col("value") * 0.5)
+    .otherwise(
+        pl.coalesce(pl.selectors.by_name("value", require_all=False), pl.lit(None)),
+    ),
+)
+picks = (
+    picks
+    .with_columns(
+        is_russet=pl.col("variety").str.contains("(?i)russet").fill_null(False),
+    )
+    .collect()
+    .lazy()
+)
+
+summary = (
+    picks
+    .drop_nulls(["team", "variety"])
+    .group_by(["team", "variety"])
+    .agg(
+        pl.col("crates").sum().alias("crates"),
+        pl.col("value"),
+        pl.len().cast(pl.Int64).alias("picks"),
+    )
+    .with_columns(pandas_group_sums(pl.col("value"), floats=False))
+    .with_columns(pl.selectors.unsigned_integer().cast(pl.Int64))
+    .sort(["team", "variety"])
+    .sort(
+        ["team", "value"],
+        descending=[False, True],
+        nulls_last=True,
+        maintain_order=True,
+    )
+)
+summary = summary.with_columns(
+    value_share=pl.when(pl.col("team").is_not_null())
+    .then(
+        pandas_div(pl.col("value"), pl.col("value").sum()).fill_nan(None).over("team"),
+    ),
+)
+(
+    summary
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_DURATIONS,
+        PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
+    )
+    .sink_csv("data/summary.csv")
+)
+
+best_day = (
+    picks
+    .drop_nulls("picked_on")
+    .group_by("picked_on")
+    .agg(pl.col("crates").sum())
+    .sort("picked_on")
+    .select(
+        pl.col("picked_on")
+        .get((pl.col("crates") == pl.col("crates").max()).arg_true().first()),
+    )
+    .collect()
+    .item()
+)
+print("best day:", best_day)
+
+per_picker = (
+    picks
+    .drop_nulls(["picker", "grade"])
+    .group_by(["picker", "grade"])
+    .agg(pl.col("crates").sum())
+    .sort("grade")
+    .collect()
+    .pivot(on="grade", index="picker", values="crates")
+    .sort("picker")
+    .fill_null(0)
+    .lazy()
+)
+per_picker = per_picker.with_columns(
+    total=pl.sum_horizontal(pl.exclude("picker"), pl.lit(0)),
+)
+per_picker = (
+    per_picker
+    .pipe(pandas_sort_values, "total", descending=True)
+    .collect()
+    .lazy()
+)
+print(per_picker.collect())
+(
+    per_picker
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_DURATIONS,
+        PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
+    )
+    .sink_csv("data/per_picker.csv")
+)
+
+picks = (
+    picks
+    .with_row_index("_porter_place")
+    .pipe(pandas_sort_values, "picked_on")
+    .with_columns(
+        pl.when(pl.col("picker").is_not_null())
+        .then(pl.col("crates").cum_sum().over("picker"))
+        .alias("cum_crates"),
+    )
+    .sort("_porter_place")
+    .drop("_porter_place")
+    .collect()
+    .pipe(
+        lambda t: t.with_columns([pl.col(c).cast(pl.Float64) for c in ("cum_crates",) if t[c].has_nulls()]),
+    )
+    .lazy()
+)
+late = picks.filter(pl.col("picked_on").dt.day().cast(pl.Int32) > 20)
+late = (
+    late
+    .with_columns(bonus=pl.when(pl.col("crates") >= 10).then(5.0).otherwise(0.0))
+    .collect()
+    .lazy()
+)
+print(
+    pl.concat([
+        late.select("picker", "crates", "bonus")
+        .select(
+            pl.lit("count").alias("index"),
+            pl.selectors.numeric().count().cast(pl.Float64),
+        ),
+        late.select("picker", "crates", "bonus")
+        .select(
+            pl.lit("mean").alias("index"),
+            pandas_reduce(pl.selectors.numeric().cast(pl.Float64), how="mean"),
+        ),
+        late.select("picker", "crates", "bonus")
+        .select(
+            pl.lit("std").alias("index"),
+            pandas_reduce(pl.selectors.numeric().cast(pl.Float64), how="std"),
+        ),
+        late.select("picker", "crates", "bonus")
+        .select(
+            pl.lit("min").alias("index"),
+            pl.selectors.numeric().min().cast(pl.Float64),
+        ),
+        late.select("picker", "crates", "bonus")
+        .select(
+            pl.lit(pl.Series(["25%", "50%", "75%"])).alias("index"),
+            pandas_percentiles(pl.selectors.numeric(), [0.25, 0.5, 0.75]),
+        ),
+        late.select("picker", "crates", "bonus")
+        .select(
+            pl.lit("max").alias("index"),
+            pl.selectors.numeric().max().cast(pl.Float64),
+        ),
+    ])
+    .collect(),
+)
+(
+    late
+    .with_columns(PANDAS_CSV_ZONED_DATETIMES)
+    .with_columns(
+        pl.selectors.boolean().replace_strict({True: "True", False: "False"}),
+        PANDAS_CSV_DATETIMES,
+        PANDAS_CSV_DURATIONS,
+        PANDAS_CSV_INTS,
+        PANDAS_CSV_FLOATS,
+        pl.selectors.by_dtype(pl.String, pl.Categorical, pl.Enum)
+        .cast(pl.String)
+        .replace("", None),
+    )
+    .sink_csv("data/late.csv")
+)
+print(
+    picks.select(pl.col("variety"))
+    .drop_nulls()
+    .group_by("variety", maintain_order=True)
+    .agg(pl.len().cast(pl.Int64).alias("count"))
+    .sort("count", descending=True, maintain_order=True)
+    .head(3)
+    .collect(),
+)
