@@ -163,6 +163,18 @@ def test_what_porter_cannot_check_stays_a_todo(source: str) -> None:
     assert [s for s in result.sites if s.status == "todo"], result.converted_text
 
 
+def test_a_level_made_of_a_frames_labels_stays_pandas() -> None:
+    # written into the Polars frame as the script wrote it, `piers.index` was read from a
+    # LazyFrame (the converted script stopped); it stays pandas code, which pandas runs
+    source = HEAD + REINDEXED.replace(
+        "piers = sorted(trips[\"pier\"].dropna().unique())",
+        "piers = trips.dropna(subset=[\"pier\"]).groupby(\"pier\")[\"cars\"].sum()").replace(
+        "[piers, days]", "[piers.index, days]") + "result = daily.reset_index()\n"
+    result = differential(source)
+    assert [s for s in result.sites if s.key == "pd.MultiIndex.from_product"
+            and s.status == "todo"], result.converted_text
+
+
 @pytest.mark.parametrize("freq", ["D", "24h", "6h"])
 def test_a_range_over_the_clock_change_matches_pandas(freq: str) -> None:
     # pandas 3's Day is a calendar day, as Polars' "1d"; 24h is a fixed duration in both

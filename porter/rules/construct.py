@@ -768,6 +768,11 @@ def multiindex_from_product(call: PandasCall, ctx: RuleContext) -> Value:
         raise ctx.todo("porter ports a MultiIndex made from a product only as the labels of a "
                        "reindex (s.reindex(it, fill_value=...)); here pandas' MultiIndex is used "
                        "otherwise")
+    if not all(isinstance(e.value, (cst.List, cst.Tuple, cst.Name)) for e in levels.elements):
+        # each level is written into the Polars frame as the script wrote it: a list, or a
+        # name porter made (galleries.index written there would be a LazyFrame's attribute)
+        raise ctx.todo("a level other than a list written in the script or held in a name "
+                       "(the labels of a frame, a call)")
     module = cst.Module([])
     frames = [emit.pl("LazyFrame", emit.atom("{" + emit.lit(n).text + ": "
                                              + module.code_for_node(e.value) + "}"))

@@ -1763,7 +1763,7 @@ class _Walker:
         if not isinstance(result, PandasValue):
             return self.bind(name, result, env, indent)
         statement = self.current_small
-        first = self.hand_over_expressions_of(name, env, statement)
+        first = self.hand_over_expressions_of(name, env, statement, indent)
         intervals = any(site.key in INTERVAL_MAKERS for site in result.sites) or any(
             site.key == "frame.setitem" and FRAME_STAYS_PANDAS in site.message
             for site in result.sites)  # values Polars has no type for (rules/assign.py)
@@ -1828,21 +1828,28 @@ class _Walker:
                 self.services.pandas_called.add(name)
 
     def hand_over_expressions_of(self, name: str, env: dict[str, Value],
-                                 stmt: cst.CSTNode | None) -> list[str]:
+                                 stmt: cst.CSTNode | None, indent: str = "") -> list[str]:
         """Series kept in names as expressions of the frame `name` (`m = df["a"] > 0`) that
         the statement reads (every one, without a statement): pandas computes them first, from
         the Polars frame, in their own names; once `name` holds the pandas frame an expression
         of it has nothing to run on."""
         read = set(_names_read(self.services.code_for(stmt))) if stmt is not None else None
+        # (a Series read by a later statement too: `y = df["cost"]` given to a model again after
+        # df went to pandas would be an expression of a frame that no longer is one)
+        here = self.services.statement_lines[1]
+        span = self.spans[0] if self.loop_depth and self.spans else (here + 1, here)
         lines = []
         for held, value in list(env.items()):
-            if (read is None or held in read) and held != name and isinstance(value, Column) \
+            later = any(line > here or span[0] <= line <= span[1]
+                        for line in self.services.name_lines.get(held, ()))
+            if (read is None or held in read or later) and held != name \
+                    and isinstance(value, Column) \
                     and value.binding is not None \
                     and (value.frame.code.text == name and isinstance(env.get(name), Frame)
                          # a Series kept as a frame of its own (`m = df.select(...)`, read
                          # after a column it reads was overwritten): a LazyFrame to pandas
                          or value.frame.code.text == held):
-                lines.append(f"{held} = {handover.to_pandas(value).text}")
+                lines.append(emit.layout_chain(handover.to_pandas(value), indent, f"{held} = "))
                 env[held] = PandasValue(emit.atom(held))
         return lines
 
@@ -2259,10 +2266,16 @@ class _Walker:
         column = value.name if value.name is not None else "0"
         plain = value.code.text == emit.col(column).text
         version = value.frame.version(column) if plain else fresh_token()
-        frame = Frame(emit.atom(name), rows=value.frame.rows, columns=(column,),
+        # the index columns go with it (handover.series_frame selects them): the row labels a
+        # filter left, a groupby's keys; the frame of its own holds them as its index too, or
+        # its first column would be taken for the values
+        keys = tuple(k for k in value.frame.index if k != column)
+        frame = Frame(emit.atom(name), rows=value.frame.rows, columns=(*keys, column),
                       versions=((column, version),), labels_intact=value.frame.labels_intact,
-                      dask=value.frame.dask, dask_many=value.frame.dask_many,
-                      dtypes=((column, value.dtype),) if value.dtype else ())
+                      dask=value.frame.dask, dask_many=value.frame.dask_many, index=keys,
+                      index_unnamed=value.frame.index_unnamed if keys else False,
+                      dtypes=tuple((k, t) for k, t in value.frame.dtypes if k in keys)
+                      + (((column, value.dtype),) if value.dtype else ()))
         kept = Column(emit.col(column), frame=frame, name=value.name, dtype=value.dtype,
                       refs=frozenset({column}), versions=((column, version),),
                       binding=self.statement_key)
