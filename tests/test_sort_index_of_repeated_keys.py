@@ -12,19 +12,22 @@ from __future__ import annotations
 
 import pytest
 
+import numpy as np
+
 from support import differential
 
-HEAD = """
+_rng = np.random.default_rng(3)
+_N = 60
+HEAD = f"""
 import pandas as pd
 import numpy as np
-rng = np.random.default_rng(3)
-n = 60
-log = pd.DataFrame({"day": pd.to_datetime("2025-03-01") + pd.to_timedelta(rng.integers(0, 5, n), unit="D"),
-                    "tray": rng.integers(0, 4, n),
-                    "weight": rng.choice([0.5, 1.25, np.nan, 2.0], n),
-                    "ok": rng.choice([True, False], n),
-                    "lot": [f"L{i:02d}" for i in range(n)]})
-log.loc[7, "day"] = pd.NaT
+log = pd.DataFrame({{"day": {[None if i == 7 else f"2025-03-0{d}" for i, d in enumerate(_rng.integers(1, 6, _N))]!r},
+                    "tray": {_rng.integers(0, 4, _N).tolist()!r},
+                    "weight": {[None if w != w else float(w) for w in _rng.choice([0.5, 1.25, np.nan, 2.0], _N)]!r},
+                    "ok": {[bool(b) for b in _rng.choice([True, False], _N)]!r},
+                    "lot": {[f"L{i:02d}" for i in range(_N)]!r}}})
+log["day"] = pd.to_datetime(log["day"])
+log["weight"] = log["weight"].astype(float)
 """
 
 CASES = {
@@ -44,5 +47,22 @@ CASES = {
 @pytest.mark.parametrize("step", list(CASES.values()), ids=list(CASES))
 def test_sort_index_as_pandas_orders_the_rows(step: str) -> None:
     result = differential(HEAD + step + "\n")
-    assert not [s for s in result.sites if s.key.endswith("sort_index") and s.status == "todo"], \
+    assert not [s for s in result.sites if s.status == "todo"], result.converted_text
+
+
+
+def test_labels_made_by_set_index_after_drop_duplicates_may_repeat() -> None:
+    # drop_duplicates leaves distinct row labels, but set_index labels the rows by another
+    # column, whose values repeat: pandas refuses to reindex them ("cannot reindex on an axis
+    # with duplicate labels"), so porter must not port the reindex as labels of distinct values
+    from support import convert_source, run
+    source = ('import pandas as pd\n'
+              'log = pd.DataFrame({"lot": ["L1", "L2", "L2", "L3"], "tray": [1, 1, 1, 2], '
+              '"weight": [0.5, 1.25, 1.25, 2.0]})\n'
+              'result = log.drop_duplicates("lot")[["tray", "weight"]].set_index("tray")'
+              '.reindex([0, 1, 2, 3], fill_value=0).reset_index()\n')
+    with pytest.raises(ValueError, match="duplicate labels"):
+        run(source)
+    result = convert_source(source)
+    assert [s for s in result.sites if s.key == "frame.reindex" and s.status == "todo"], \
         result.converted_text

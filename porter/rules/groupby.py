@@ -1926,7 +1926,7 @@ def value_counts(call: PandasCall, ctx: RuleContext) -> Value:
     rows = fresh_token()  # each value once: labels of distinct values
     result = Frame(counts, columns=(name, result_name), index=(name,), labels_intact=False,
                    dtypes=(((name, column.dtype),) if column.dtype is not None else ())
-                   + ((result_name, kind),), rows=rows, distinct_labels=rows)
+                   + ((result_name, kind),), rows=rows, distinct_labels=(rows, (name,)))
     return Column(emit.col(result_name), frame=result, name=result_name, dtype=kind,
                   refs=frozenset({result_name}))
 

@@ -1330,7 +1330,7 @@ def unique_key(frame: Frame) -> bool:
     groupby's result in its own order, a Series indexed by column names (df.sum()), or value
     counts (Frame.distinct_labels)."""
     return len(frame.index) == 1 and (frame.grouped_rows == frame.rows or frame.index_unnamed
-                                      or frame.distinct_labels == frame.rows)
+                                      or frame.distinct_labels == (frame.rows, frame.index))
 
 
 @rule("series.loc")

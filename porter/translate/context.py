@@ -266,7 +266,7 @@ def labels_kept(frame: Frame, result: Frame, *, reordered: bool = False) -> Fram
     (Frame.distinct_labels, Frame.reorders)."""
     if not frame.labels_distinct() or result.labels_intact or result.rows == frame.rows:
         return result
-    return replace(result, distinct_labels=result.rows,
+    return replace(result, distinct_labels=(result.rows, ()),
                    reorders=(result.rows, frame.rows) if reordered else None)
 
 

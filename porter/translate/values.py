@@ -138,11 +138,12 @@ class Frame(Value):
     # a merge of two such frames shuffles their rows (rules/dask.py)
     dask_many: bool = field(default=False, kw_only=True)
     # no two rows share a label (pandas' row labels of a frame without an index of its own,
-    # or the one key of its index): the rows token for which that was shown, a filter or sort
-    # of a frame whose labels are 0..n-1 or distinct (labels_distinct), value counts. Any
-    # step that gives other rows makes a new token, so the mark no longer holds unless that
-    # step says so again
-    distinct_labels: int | None = field(default=None, kw_only=True)
+    # or the one key of its index): the rows token and the index keys for which that was
+    # shown, a filter or sort of a frame whose labels are 0..n-1 or distinct
+    # (labels_distinct), value counts. A step that gives other rows makes a new token, and
+    # one that labels the rows otherwise (set_index) other index keys, so the mark no longer
+    # holds unless that step says so again
+    distinct_labels: tuple[int, tuple[str, ...]] | None = field(default=None, kw_only=True)
     # every row of another frame, in another order (a sort of it): this frame's rows token
     # and the other's (reordered_from). A Series computed on this frame is set into the other
     # by each row's place there, as pandas aligns it on the (distinct) labels
@@ -153,7 +154,7 @@ class Frame(Value):
         partitions, whose labels restart in each)."""
         if self.index or self.dask:
             return False
-        return self.labels_intact or self.distinct_labels == self.rows
+        return self.labels_intact or self.distinct_labels == (self.rows, ())
 
     def reordered_from(self) -> int | None:
         """The rows token of the frame whose rows this one holds, all of them, in another
