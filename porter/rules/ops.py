@@ -1550,9 +1550,10 @@ _BY_ROW = "_porter_by_row"
 
 @rule(*(f"frame.{name}" for name in _ROW_WISE_OPS))
 def frame_by_rows(call: PandasCall, ctx: RuleContext) -> Value:
-    """wide.div(wide.sum(axis=1), axis=0) (mul / sub / add): each column of numbers with a Series
-    of the frame's own rows, row by row -> the Series held in a column, then one expression over
-    the columns: pl.exclude(keys) / pl.col(that column).
+    """wide.div(wide.sum(axis=1), axis=0) -> the Series in a column, then pl.exclude(keys) / it.
+
+    mul / sub / add alike: each column of numbers with a Series of the frame's own rows, row by
+    row, one expression over the columns.
 
     Handles: a pivoted table whose columns porter does not know (pivot_table, unstack, crosstab:
     every column but the keys holds numbers), or a frame whose columns are all known numbers;
