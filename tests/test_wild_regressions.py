@@ -301,9 +301,12 @@ def test_a_series_position_handed_to_pandas_stays_a_position(tmp_path, monkeypat
         df.columns = [c.lower() for c in df.columns]
         result = [df["visitors"].cumsum().iloc[-1], df["day"].iloc[-1], df["visitors"].iloc[-2]]
     """)
-    converted = convert_source(source, options=Options(data_dir=str(tmp_path))).converted_text
+    # with --data the new names are computed at conversion and the column's type is known:
+    # ported whole; without it the names come at run time and the positions go to pandas
+    for options in (Options(data_dir=str(tmp_path)), Options()):
+        converted = convert_source(source, options=options).converted_text
+        assert_same_value(run(source)["result"], run(converted)["result"])
     assert ".iloc[-1]" in converted
-    assert_same_value(run(source)["result"], run(converted)["result"])
 
 
 def test_one_true_false_value_is_numpys_as_pandas_gives_it(tmp_path):
