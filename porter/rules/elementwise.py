@@ -1191,9 +1191,9 @@ def cut(call: PandasCall, ctx: RuleContext) -> Value:
     return derived_column(column, code, dtype="enum")  # ordered: sorts in the labels' order
 
 
-# pandas' functions of a Series that df.apply(f, axis=0, **kwargs) calls on each column, as
-# the rule of that function ports them (module name in rules/)
-_PER_COLUMN = {"pandas.to_numeric": ("assign", "to_numeric")}
+# pandas' functions of a Series that df.apply(f, axis=0, **kwargs) calls on each column, each
+# with the mapping key of the rule that ports it
+PER_COLUMN_FUNCTIONS = {"pandas.to_numeric": "pd.to_numeric"}
 
 
 def _pandas_function_per_column(call: PandasCall, frame: Frame, qualname: str,
@@ -1201,7 +1201,7 @@ def _pandas_function_per_column(call: PandasCall, frame: Frame, qualname: str,
     """df[cols].apply(pd.to_numeric, errors="coerce"): pandas calls the function on each
     column with the keyword arguments given, and builds a frame of the results with the
     frame's rows: each column ported as the function's own rule ports it."""
-    import importlib
+    from porter.rules import registry
 
     if call.const("axis", 1, 0, kinds=(int, str)) not in (0, "index"):
         raise Unsupported("a pandas function given each row (axis=1)")
@@ -1211,8 +1211,8 @@ def _pandas_function_per_column(call: PandasCall, frame: Frame, qualname: str,
         raise Unsupported("a frame with an index of its own")
     if len(call.args) > 2:
         raise Unsupported("arguments of the function given by position (args=)")
-    module, name = _PER_COLUMN[qualname]
-    rule_function = getattr(importlib.import_module(f"porter.rules.{module}"), name)
+    key = PER_COLUMN_FUNCTIONS[qualname]
+    rule_function, name = registry()[key], key.split(".")[-1]
     kwargs = {k: v for k, v in call.kwargs.items() if k not in ("func", "axis")}
     ported: dict[str, Column] = {}
     for column in frame.columns:
@@ -1249,7 +1249,7 @@ def frame_apply(call: PandasCall, ctx: RuleContext) -> Value:
     frame = call.receiver
     assert isinstance(frame, Frame)
     function = call.arg("func", 0, None)
-    if isinstance(function, Module) and function.qualname in _PER_COLUMN:
+    if isinstance(function, Module) and function.qualname in PER_COLUMN_FUNCTIONS:
         return _pandas_function_per_column(call, frame, function.qualname, ctx)
     ctx.reject_unknown(call, "func", "axis", positional=2)
     axis = call.const("axis", 1, 0, kinds=(int, str))

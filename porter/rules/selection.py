@@ -1841,6 +1841,10 @@ def columns_str(call: PandasCall, ctx: RuleContext) -> Value:
     if known is not None:
         # pandas' own Index.str methods compute the new names here, as the script would
         new_names = names_by_pandas(known, ops)
+        if any(m in ("lower", "upper", "casefold") for m, _ in ops) \
+                and not all(c.isascii() for c in known):
+            ctx.lower("the new names of non-ASCII letters are those this machine's pandas gives; "
+                      "pandas without pyarrow changes a few letters otherwise (İ, ß)", 0.95)
         if len(set(new_names)) != len(new_names):
             raise Unsupported("the new names repeat a name (pandas keeps both columns; a Polars "
                               "frame cannot)")

@@ -2771,7 +2771,8 @@ def _pandas_function_applied(value: cst.Call, evaluator: Evaluator | None
             or value.args[0].keyword is not None or value.args[0].star:  # type: ignore[attr-defined]
         return None
     function = evaluator.eval(value.args[0].value)
-    if not (isinstance(function, Module) and function.qualname in ("pandas.to_numeric",)):
+    from porter.rules.elementwise import PER_COLUMN_FUNCTIONS
+    if not (isinstance(function, Module) and function.qualname in PER_COLUMN_FUNCTIONS):
         return None
     for arg in value.args[1:]:
         if arg.keyword is None or arg.star or arg.keyword.value in ("axis", "args", "func",
